@@ -1,0 +1,33 @@
+// One bundler, one entry per artefact. `node esbuild.mjs [--production]`.
+// The metafile of each bundle is written to dist/meta/ (inspected by the network-free test).
+import { build } from 'esbuild';
+import { existsSync, mkdirSync, writeFileSync } from 'node:fs';
+
+const production = process.argv.includes('--production');
+
+const artefacts = [
+  { name: 'cli', entry: 'server/src/cli/main.ts'},
+  { name: 'server', entry: 'server/src/server/main.ts' },
+  { name: 'extension', entry: 'client/src/extension.ts', external: ['vscode'] },
+].filter((a) => existsSync(a.entry));
+
+mkdirSync('dist/meta', { recursive: true });
+await Promise.all(
+  artefacts.map(async (a) => {
+    const result = await build({
+      entryPoints: [a.entry],
+      outfile: `dist/${a.name}.js`,
+      bundle: true,
+      platform: 'node',
+      target: 'node20',
+      format: 'cjs',
+      sourcemap: !production,
+      minify: production,
+      external: a.external ?? [],
+      metafile: true,
+      logLevel: 'warning',
+      ...(a.banner ? { banner: { js: a.banner } } : {}),
+    });
+    writeFileSync(`dist/meta/${a.name}.json`, JSON.stringify(result.metafile));
+  }),
+);

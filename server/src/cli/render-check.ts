@@ -1,0 +1,96 @@
+/**
+ * `pneumark check` output. Text: one line per finding, `path:line:col  severity  code  message`.
+ * JSON: the stable shape documented in README.md ("JSON output"), version 1.
+ */
+import type { NoteResult } from '../core/check-note';
+import { CHECKS } from '../core/checks/registry';
+import type { Finding } from '../core/types';
+import type { Paint } from './colour';
+import { countSeverities, type SeverityCounts } from './render-show';
+
+export interface FileOutcome {
+  readonly path: string;
+  readonly result: NoteResult | null;
+  readonly problem: string | null;
+}
+
+const aliasOf = new Map(CHECKS.map((c) => [c.code, c.alias]));
+
+export function renderCheckText(outcomes: readonly FileOutcome[], p: Paint, quiet: boolean): string {
+  const lines: string[] = [];
+  const total: SeverityCounts = { error: 0, warning: 0, information: 0, hint: 0 };
+  for (const o of outcomes) {
+    if (o.problem) {
+      lines.push(`${o.path}: ${p.red('cannot check')}: ${o.problem}`);
+      continue;
+    }
+    const findings = (o.result?.findings ?? []).filter((f) => !quiet || f.severity === 'error');
+    const c = countSeverities(o.result?.findings ?? []);
+    total.error += c.error;
+    total.warning += c.warning;
+    total.information += c.information;
+    total.hint += c.hint;
+    for (const f of findings) {
+      const sev = f.severity === 'error' ? p.red('error') : f.severity === 'warning' ? p.yellow('warning') : p.blue(f.severity === 'information' ? 'info' : 'hint');
+      lines.push(`${o.path}:${f.range.start.line + 1}:${f.range.start.character + 1}  ${sev}  ${p.dim(`${f.code} ${aliasOf.get(f.code) ?? ''}`)}  ${f.message}`);
+    }
+  }
+  const checked = outcomes.filter((o) => !o.problem).length;
+  const unreadable = outcomes.length - checked;
+  lines.push(`${checked} note${checked === 1 ? '' : 's'} checked${unreadable ? `, ${unreadable} could not be read` : ''}: ${total.error} error${total.error === 1 ? '' : 's'}, ${total.warning} warning${total.warning === 1 ? '' : 's'}, ${total.information} note${total.information === 1 ? '' : 's'}.`);
+  return lines.join('\n');
+}
+
+export interface JsonFinding {
+  readonly code: string;
+  readonly alias: string;
+  readonly severity: Finding['severity'];
+  readonly message: string;
+  /** 1-based line and column (UTF-16 code units), for people. */
+  readonly line: number;
+  readonly column: number;
+  readonly endLine: number;
+  readonly endColumn: number;
+  /** 0-based LSP range, for tools. */
+  readonly range: Finding['range'];
+  readonly fixes: Finding['fixes'];
+  readonly doc: string;
+}
+
+export function toJsonFinding(f: Finding): JsonFinding {
+  return {
+    code: f.code,
+    alias: aliasOf.get(f.code) ?? '',
+    severity: f.severity,
+    message: f.message,
+    line: f.range.start.line + 1,
+    column: f.range.start.character + 1,
+    endLine: f.range.end.line + 1,
+    endColumn: f.range.end.character + 1,
+    range: f.range,
+    fixes: f.fixes,
+    doc: `docs/checks.md#${f.docAnchor}`,
+  };
+}
+
+export function renderCheckJson(outcomes: readonly FileOutcome[], extra: (o: FileOutcome) => Record<string, unknown> = () => ({})): string {
+  const total: SeverityCounts = { error: 0, warning: 0, information: 0, hint: 0 };
+  const files = outcomes.map((o) => {
+    const c = countSeverities(o.result?.findings ?? []);
+    total.error += c.error;
+    total.warning += c.warning;
+    total.information += c.information;
+    total.hint += c.hint;
+    return {
+      path: o.path,
+      problem: o.problem,
+      findings: (o.result?.findings ?? []).map(toJsonFinding),
+      ...extra(o),
+    };
+  });
+  return JSON.stringify({
+    pneumark: 1,
+    files,
+    summary: { files: outcomes.length, unreadable: outcomes.filter((o) => o.problem).length, errors: total.error, warnings: total.warning, information: total.information, hints: total.hint },
+  }, null, 2);
+}

@@ -1,0 +1,110 @@
+/**
+ * `pneumark show`: the note as the core understood it — each timepoint, its lines with
+ * normalised values and units, values carried in from earlier timepoints, and findings
+ * under the line they belong to.
+ */
+import type { NoteResult } from '../core/check-note';
+import type { StatedValue, Timepoint } from '../core/analysis/model';
+import { shortOf, formatAlternative, formatStated, describeOrigin } from '../core/present';
+import type { LineNode } from '../core/syntax/tree';
+import type { Finding } from '../core/types';
+import type { Paint } from './colour';
+import { renderDerived } from './render-derived';
+
+export function renderShow(path: string, result: NoteResult, p: Paint): string {
+  const { analysis, findings } = result;
+  const out: string[] = [];
+  const byLine = new Map<number, Finding[]>();
+  for (const f of findings) {
+    const list = byLine.get(f.range.start.line);
+    if (list) list.push(f);
+    else byLine.set(f.range.start.line, [f]);
+  }
+  const counts = countSeverities(findings);
+  out.push(`${p.bold(path)}  ${p.dim(`${analysis.timeline.timepoints.length} timepoint${analysis.timeline.timepoints.length === 1 ? '' : 's'}`)}  ${summary(counts, p)}`);
+
+  const statedByLine = new Map<number, StatedValue[]>();
+  for (const s of [...analysis.timeline.header, ...analysis.timeline.timepoints.flatMap((t) => t.stated)]) {
+    const list = statedByLine.get(s.line);
+    if (list) list.push(s);
+    else statedByLine.set(s.line, [s]);
+  }
+  const tpByStart = new Map<number, Timepoint>();
+  for (const tp of analysis.timeline.timepoints) tpByStart.set(tp.line ?? tp.startLine, tp);
+  const tpByEnd = new Map<number, Timepoint>();
+  for (const tp of analysis.timeline.timepoints) tpByEnd.set(tp.endLine, tp);
+
+  let printedHeader = false;
+  for (const node of analysis.tree.lines) {
+    const tp = tpByStart.get(node.line);
+    if (tp && tp.line === null) out.push('', p.bold(p.cyan('@ (start)')));
+    if (node.kind === 'timepoint') {
+      out.push('', `${p.bold(p.cyan(`@ ${node.time?.text ?? '?'}`))}${node.label ? `  ${node.label.text}` : ''}  ${p.dim(`line ${node.line + 1}`)}`);
+    } else if (node.kind === 'section') {
+      if (!printedHeader && analysis.timeline.timepoints.every((t) => t.startLine > node.line)) {
+        out.push('', p.bold('header'));
+        printedHeader = true;
+      }
+      out.push(renderSectionLine(node, statedByLine.get(node.line) ?? [], p));
+    } else if (node.kind === 'unknown') {
+      out.push(`  ${p.red('?')} ${node.text.trim()}`);
+    }
+    for (const f of byLine.get(node.line) ?? []) out.push(renderFinding(f, p));
+    const ending = tpByEnd.get(node.line);
+    if (ending) out.push(...renderTimepointFooter(ending, p));
+  }
+  return out.join('\n');
+}
+
+function renderSectionLine(node: Extract<LineNode, { kind: 'section' }>, stated: readonly StatedValue[], p: Paint): string {
+  const head = `  ${p.blue(node.section.padEnd(8))}`;
+  if (node.section === 'note') return `${head} ${p.dim(node.prose?.text ?? '')}`;
+  const parts = stated.map((s) => {
+    const alt = formatAlternative(s);
+    const value = s.unitDoubt ? `${s.item.value?.text ?? ''} ?` : formatStated(s);
+    const flag = s.usable ? '' : p.yellow(' (not used)');
+    return `${shortOf(s.fieldId)} ${p.bold(value)}${alt && s.unit !== 'fraction' ? p.dim(` (${alt})`) : ''}${flag}`;
+  });
+  return `${head} ${parts.join(p.dim(' · '))}`;
+}
+
+function renderTimepointFooter(tp: Timepoint, p: Paint): string[] {
+  const carried = [...tp.values.values()].filter((v) => v.origin.kind === 'carried');
+  const lines: string[] = [];
+  const groups = new Map<string, string[]>();
+  for (const v of carried) {
+    const from = describeOrigin(v.origin);
+    const list = groups.get(from) ?? [];
+    list.push(`${shortOf(v.stated.fieldId)} ${formatStated(v.stated)}`);
+    groups.set(from, list);
+  }
+  for (const [from, values] of groups) lines.push(`  ${p.magenta('carried'.padEnd(8))} ${values.join(p.dim(' · '))} ${p.dim(`(${from})`)}`);
+  lines.push(...renderDerived(tp, p));
+  return lines;
+}
+
+export function renderFinding(f: Finding, p: Paint): string {
+  const mark = f.severity === 'error' ? p.red('✖ error') : f.severity === 'warning' ? p.yellow('▲ warning') : p.blue('● info');
+  return `      ${mark} ${p.dim(f.code)} ${f.message} ${p.dim(`(${f.range.start.line + 1}:${f.range.start.character + 1})`)}`;
+}
+
+export interface SeverityCounts {
+  error: number;
+  warning: number;
+  information: number;
+  hint: number;
+}
+
+export function countSeverities(findings: readonly Finding[]): SeverityCounts {
+  const c: SeverityCounts = { error: 0, warning: 0, information: 0, hint: 0 };
+  for (const f of findings) c[f.severity]++;
+  return c;
+}
+
+function summary(c: SeverityCounts, p: Paint): string {
+  const parts: string[] = [];
+  if (c.error) parts.push(p.red(`${c.error} error${c.error === 1 ? '' : 's'}`));
+  if (c.warning) parts.push(p.yellow(`${c.warning} warning${c.warning === 1 ? '' : 's'}`));
+  if (c.information) parts.push(p.blue(`${c.information} note${c.information === 1 ? '' : 's'}`));
+  return parts.length > 0 ? parts.join(', ') : p.green('no findings');
+}

@@ -1,0 +1,77 @@
+/**
+ * What the analysis makes of a note: timepoints with the values in force at each one,
+ * where every value came from, and (from the physiology layer) derived values.
+ */
+import type { Range } from '../types';
+import type { SectionId } from '../fields/sections';
+import type { ItemNode, Span } from '../syntax/tree';
+
+/** Where an input came from. */
+export type Origin =
+  /** Stated at this timepoint. */
+  | { readonly kind: 'here'; readonly line: number; readonly span: Span }
+  /** Stated at an earlier timepoint and carried forward. */
+  | { readonly kind: 'carried'; readonly line: number; readonly span: Span; readonly timepoint: number; readonly timepointLabel: string }
+  /** From the note's header (patient, place, units before the first timepoint). */
+  | { readonly kind: 'header'; readonly line: number; readonly span: Span }
+  /** A default convention (room air FiO2, RQ 0.8, ...). */
+  | { readonly kind: 'default'; readonly description: string };
+
+/** A value a note stated, read into the field's canonical unit. */
+export interface StatedValue {
+  readonly fieldId: string;
+  readonly section: SectionId;
+  readonly line: number;
+  readonly item: ItemNode;
+  /** Canonical number (numbers); null for words and pairs. */
+  readonly value: number | null;
+  /** Canonical numbers of a pair (blood pressure). */
+  readonly parts: readonly number[] | null;
+  /** Canonical word (word fields). */
+  readonly word: string | null;
+  /** Canonical unit id of `value`/`parts`. */
+  readonly unit: string | null;
+  /** The unit id the written number was read in (may differ from the canonical unit). */
+  readonly readUnit: string | null;
+  /** True when no unit was written and the unit came from a default. */
+  readonly unitImplied: boolean;
+  /** A unit the bare number more likely means (reported by PN204); null when none. */
+  readonly unitDoubt: string | null;
+  /** False when the value should not feed computations (unreadable unit, doubtful value). */
+  readonly usable: boolean;
+}
+
+/** A value in force at a timepoint. */
+export interface InputValue {
+  readonly stated: StatedValue;
+  readonly origin: Origin;
+}
+
+export interface TimepointTime {
+  /** Day number (1-based) when known. */
+  readonly day: number | null;
+  /** Minutes since day 1 00:00, when the timeline allows it. */
+  readonly minutes: number | null;
+}
+
+export interface Timepoint {
+  readonly index: number;
+  /** The `@` line, or null for the implicit first timepoint of a note with lines before any `@`. */
+  readonly line: number | null;
+  readonly label: string;
+  /** Lines that belong to this timepoint (inclusive; from its `@` line to before the next). */
+  readonly startLine: number;
+  readonly endLine: number;
+  readonly time: TimepointTime;
+  /** Values stated at this timepoint, in order. */
+  readonly stated: readonly StatedValue[];
+  /** Values in force here by field id: stated here, carried, or from the header. */
+  readonly values: ReadonlyMap<string, InputValue>;
+  /** Barometric pressure in force (stated, or from altitude), mmHg; null when no place is given. */
+  readonly barometricMmhg: number | null;
+}
+
+export function originRange(origin: Origin): Range | null {
+  if (origin.kind === 'default') return null;
+  return { start: { line: origin.line, character: origin.span.start }, end: { line: origin.line, character: origin.span.end } };
+}

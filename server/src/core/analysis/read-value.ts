@@ -1,0 +1,194 @@
+/**
+ * Reads one parsed item into a stated value in the field's canonical unit, and names what
+ * stands in the way (unknown key, unknown or disallowed unit, a number that only makes
+ * sense in another unit).
+ */
+import { canonicalWord, FIELDS, fieldFor, keysInSection, type FieldDef } from '../fields/registry';
+import type { SectionId } from '../fields/sections';
+import { convert, unitById, unitsForSpelling, type UnitDef } from '../fields/units';
+import type { ItemNode, LineFix } from '../syntax/tree';
+import { formatNumber } from '../util/format';
+import { closest } from '../util/suggest';
+import { softBounds, within, type BoundsContext } from './bounds';
+import type { StatedValue } from './model';
+import type { ReadIssue } from './read-issues';
+
+export interface ReadContext extends BoundsContext {
+  readonly gasUnit: 'mmHg' | 'kPa';
+}
+
+export interface ReadResult {
+  readonly stated: StatedValue | null;
+  readonly issues: readonly ReadIssue[];
+}
+
+export function readItem(item: ItemNode, section: SectionId, line: number, ctx: ReadContext): ReadResult {
+  const field = fieldFor(section, item.keyName);
+  const issues: ReadIssue[] = [];
+  if (!field) {
+    if (item.key) issues.push(unknownKeyIssue(item, section, line));
+    return { stated: null, issues };
+  }
+  if (!item.value) return { stated: null, issues };
+  const base = { fieldId: field.id, section, line, item };
+
+  if (field.kind === 'word') {
+    const text = item.value.text;
+    const word = canonicalWord(field, text);
+    if (word === null) {
+      const known = [...new Set(Object.values(field.words ?? {}))];
+      const near = closest(text, Object.keys(field.words ?? {}));
+      issues.push({
+        check: 'unknown-word',
+        line,
+        span: item.value.span,
+        message: `\`${text}\` is not a ${field.label.toLowerCase()} Pneumark knows; expected one of: ${known.join(', ')}.`,
+        fixes: near.map((w) => ({ title: `Change to \`${field.words?.[w] ?? w}\``, edits: [{ span: item.value!.span, newText: field.words?.[w] ?? w }] })),
+      });
+      return { stated: { ...base, value: null, parts: null, word: null, unit: null, readUnit: null, unitImplied: false, unitDoubt: null, usable: false }, issues };
+    }
+    return { stated: { ...base, value: null, parts: null, word, unit: null, readUnit: null, unitImplied: false, unitDoubt: null, usable: true }, issues };
+  }
+
+  const numbers = item.value.kind === 'number' ? [item.value.value] : item.value.kind === 'pair' ? item.value.parts.map((p) => p.value) : null;
+  if (!numbers || (field.kind === 'pair') !== (item.value.kind === 'pair')) {
+    return { stated: null, issues: [] }; // shape problems are reported by the syntax checks
+  }
+  const canonical = field.unit ? unitById(field.unit) : undefined;
+  if (!canonical) return { stated: null, issues };
+
+  // Which unit was the number written in?
+  let readUnit: UnitDef | undefined;
+  let unitImplied = false;
+  if (item.unit) {
+    const candidates = unitsForSpelling(item.unit.text);
+    readUnit = candidates.find((u) => field.units?.includes(u.id));
+    if (!readUnit) {
+      issues.push(candidates.length === 0 ? unknownUnitIssue(item, field, line) : unitNotAllowedIssue(item, field, line, candidates));
+      return { stated: { ...base, value: null, parts: null, word: null, unit: canonical.id, readUnit: null, unitImplied: false, unitDoubt: null, usable: false }, issues };
+    }
+  } else {
+    unitImplied = true;
+    readUnit = bareUnit(field, numbers[0] ?? 0, ctx, canonical);
+  }
+
+  const converted = numbers.map((n) => convert(n, readUnit, canonical));
+  if (converted.some((c) => c === null)) return { stated: null, issues };
+  const values = converted as number[];
+  // An impossible value feeds no calculation (the bounds checks report it).
+  let usable = !field.hard || values.every((v) => within(v, field.hard));
+
+  let unitDoubt: string | null = null;
+  if (unitImplied && item.value.kind === 'number') {
+    const likely = otherUnitLikely(field, values[0]!, item.value.value, readUnit, canonical, ctx);
+    if (likely) {
+      usable = false;
+      unitDoubt = likely.id;
+      issues.push(otherUnitIssue(item, field, line, readUnit, likely, canonical));
+    }
+  }
+
+  return {
+    stated: {
+      ...base,
+      value: field.kind === 'number' ? values[0]! : null,
+      parts: field.kind === 'pair' ? values : null,
+      word: null,
+      unit: canonical.id,
+      readUnit: readUnit.id,
+      unitImplied,
+      unitDoubt,
+      usable,
+    },
+    issues,
+  };
+}
+
+function bareUnit(field: FieldDef, written: number, ctx: ReadContext, canonical: UnitDef): UnitDef {
+  if (field.bare === 'gas') return unitById(ctx.gasUnit) ?? canonical;
+  if (field.bare === 'fraction-or-percent') return (written > 1 ? unitById('%') : unitById('fraction')) ?? canonical;
+  return canonical;
+}
+
+/** A unit (other than the one assumed) in which a bare number would be ordinary. */
+function otherUnitLikely(field: FieldDef, canonicalValue: number, written: number, readUnit: UnitDef, canonical: UnitDef, ctx: ReadContext): UnitDef | null {
+  if (field.bare === 'fraction-or-percent') return null;
+  const soft = softBounds(field, ctx) ?? field.hard;
+  if (!soft || within(canonicalValue, soft)) return null;
+  for (const id of field.units ?? []) {
+    if (id === readUnit.id) continue;
+    const alt = unitById(id);
+    if (!alt) continue;
+    const asAlt = convert(written, alt, canonical);
+    if (asAlt !== null && within(asAlt, soft)) return alt;
+  }
+  return null;
+}
+
+function otherUnitIssue(item: ItemNode, field: FieldDef, line: number, readUnit: UnitDef, likely: UnitDef, canonical: UnitDef): ReadIssue {
+  const value = item.value!;
+  const written = value.kind === 'number' ? value.value : NaN;
+  const inRead = convert(written, likely, readUnit);
+  const fixes: LineFix[] = [
+    { title: `Mark as ${likely.id}`, edits: [{ span: { start: value.span.end, end: value.span.end }, newText: ` ${likely.id}` }], preferred: false },
+  ];
+  if (inRead !== null) {
+    const decimals = readUnit.id === canonical.id ? field.decimals : Math.max(field.decimals, 1);
+    fixes.push({ title: `Convert to ${formatNumber(inRead, decimals)} ${readUnit.id}`, edits: [{ span: value.span, newText: formatNumber(inRead, decimals) }] });
+  }
+  return {
+    check: 'other-unit-likely',
+    line,
+    span: value.span,
+    message: `${field.label} ${value.text} was read in ${readUnit.id}, where it is implausible; in ${likely.id} it would be ordinary. Add the unit (or convert); it is not used in calculations until then.`,
+    fixes,
+  };
+}
+
+function unknownKeyIssue(item: ItemNode, section: SectionId, line: number): ReadIssue {
+  const key = item.key!;
+  const candidates = keysInSection(section);
+  const near = closest(key.text, candidates);
+  const elsewhere = FIELDS.filter((f) => f.aliases.includes(key.text.toLowerCase())).flatMap((f) => f.sections);
+  const where = elsewhere.length > 0 ? ` (\`${key.text}\` belongs on a ${[...new Set(elsewhere)].join(' or ')} line)` : '';
+  const hint = near.length > 0 ? ` Did you mean ${near.map((k) => `\`${k}\``).join(' or ')}?` : '';
+  return {
+    check: 'unknown-key',
+    line,
+    span: key.span,
+    message: `\`${key.text}\` is not a key of ${section} lines${where}.${hint}`,
+    fixes: near.map((k, i) => ({ title: `Change to \`${k}\``, edits: [{ span: key.span, newText: k }], preferred: i === 0 && near.length === 1 })),
+  };
+}
+
+function unknownUnitIssue(item: ItemNode, field: FieldDef, line: number): ReadIssue {
+  const unit = item.unit!;
+  const allowed = (field.units ?? []).map(displayUnit);
+  const near = closest(unit.text, allowed);
+  return {
+    check: 'unknown-unit',
+    line,
+    span: unit.span,
+    message: `\`${unit.text}\` is not a unit Pneumark knows; ${field.label} takes ${allowed.join(', ')}.`,
+    fixes: near.map((u) => ({ title: `Change to ${u}`, edits: [{ span: unit.span, newText: u }] })),
+  };
+}
+
+function unitNotAllowedIssue(item: ItemNode, field: FieldDef, line: number, candidates: readonly UnitDef[]): ReadIssue {
+  const unit = item.unit!;
+  const allowed = (field.units ?? []).map(displayUnit);
+  return {
+    check: 'unit-not-allowed',
+    line,
+    span: unit.span,
+    message: `${field.label} is not measured in ${candidates[0]?.id ?? unit.text}; it takes ${allowed.join(', ')}.`,
+    fixes: allowed.map((u) => ({ title: `Change to ${u}`, edits: [{ span: unit.span, newText: u }] })),
+  };
+}
+
+/** How a unit id is written in a note (`fraction` and `%sat` are internal ids). */
+export function displayUnit(id: string): string {
+  if (id === 'fraction') return 'fraction';
+  if (id === '%sat') return '%';
+  return id;
+}

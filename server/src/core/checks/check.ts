@@ -1,0 +1,51 @@
+/**
+ * What a check is. Each check has a stable code (never reused), a readable alias, a default
+ * severity, tags, its documentation (generated into docs/checks.md) and its source.
+ * `run` reports findings through the context; a check that throws is caught by the runner
+ * and becomes an internal finding, never a crash.
+ */
+import type { NoteAnalysis } from '../analysis/analyse';
+import type { Settings } from '../settings';
+import type { Fix, Range, Severity } from '../types';
+
+export interface CheckDoc {
+  /** What makes it fire, in a sentence or two. */
+  readonly fires: string;
+  /** A note excerpt on which it fires. */
+  readonly example: string;
+  /** How to make it go away (the right way). */
+  readonly fix: string;
+}
+
+export interface Report {
+  readonly range: Range;
+  readonly message: string;
+  readonly fixes?: readonly Fix[];
+  readonly related?: readonly { readonly range: Range; readonly message: string }[];
+  /** Overrides the check's default severity for this finding. */
+  readonly severity?: Severity;
+}
+
+export interface CheckContext {
+  readonly analysis: NoteAnalysis;
+  readonly settings: Settings;
+  report(finding: Report): void;
+}
+
+export type CheckTag = 'syntax' | 'units' | 'plausibility' | 'timeline' | 'physiology' | 'interpretation' | 'privacy' | 'internal';
+
+export interface CheckDef {
+  readonly code: string;
+  readonly alias: string;
+  readonly title: string;
+  readonly severity: Severity;
+  readonly tags: readonly CheckTag[];
+  readonly doc: CheckDoc;
+  /** Published source, "common practice, no source", or "format rule" for grammar checks. */
+  readonly source: string;
+  readonly run: (ctx: CheckContext) => void;
+}
+
+export function defineCheck(def: CheckDef): CheckDef {
+  return def;
+}

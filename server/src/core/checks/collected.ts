@@ -1,0 +1,113 @@
+/**
+ * Checks whose findings are collected while parsing and reading values: the parser and the
+ * value reader record the problem under the check's alias, and these checks report it.
+ */
+import type { ReadCheckAlias } from '../analysis/read-issues';
+import { lineFixToFix, toRange, type SyntaxCheckAlias } from '../syntax/tree';
+import { defineCheck, type CheckDef, type CheckDoc, type CheckTag } from './check';
+import type { Severity } from '../types';
+
+const FORMAT_RULE = 'format rule (grammar/README.md)';
+
+function syntaxCheck(code: string, alias: SyntaxCheckAlias, title: string, severity: Severity, doc: CheckDoc): CheckDef {
+  return defineCheck({
+    code, alias, title, severity, tags: ['syntax'], doc, source: FORMAT_RULE,
+    run(ctx) {
+      for (const node of ctx.analysis.tree.lines) {
+        for (const issue of node.issues) {
+          if (issue.check !== alias) continue;
+          ctx.report({ range: toRange(node.line, issue.span), message: issue.message, fixes: issue.fixes.map((f) => lineFixToFix(node.line, f)) });
+        }
+      }
+    },
+  });
+}
+
+function readCheck(code: string, alias: ReadCheckAlias, title: string, severity: Severity, tags: readonly CheckTag[], source: string, doc: CheckDoc): CheckDef {
+  return defineCheck({
+    code, alias, title, severity, tags, doc, source,
+    run(ctx) {
+      for (const issue of ctx.analysis.timeline.readIssues) {
+        if (issue.check !== alias) continue;
+        ctx.report({
+          range: toRange(issue.line, issue.span),
+          message: issue.message,
+          fixes: issue.fixes.map((f) => lineFixToFix(issue.line, f)),
+          ...(issue.related ? { related: issue.related.map((r) => ({ range: toRange(r.line, r.span), message: r.message })) } : {}),
+        });
+      }
+    },
+  });
+}
+
+export const unknownSection = syntaxCheck('PN101', 'unknown-section', 'Unknown section', 'error', {
+  fires: 'A line starts with a word that is not a section (and is not `@`, a comment or blank).',
+  example: 'vitls hr 118',
+  fix: 'Start the line with a section: patient, place, units, vitals, oxygen, abg, vbg, labs, vent or note. A key written alone (`hr 118`) is offered its section.',
+});
+
+export const missingValue = syntaxCheck('PN102', 'missing-value', 'Key without a value', 'error', {
+  fires: 'A key is followed by nothing, a comma or another key.',
+  example: 'vitals hr, rr 26',
+  fix: 'Write the value after the key (`hr 118`), or remove the key.',
+});
+
+export const decimalComma = syntaxCheck('PN103', 'decimal-comma', 'Decimal comma', 'warning', {
+  fires: 'A number is written with a decimal comma (`7,35`). Commas separate items, so the value is easy to misread.',
+  example: 'abg ph 7,35, pco2 41',
+  fix: 'Write a decimal point (`7.35`); the quick fix does it, also for the whole note.',
+});
+
+export const badTime = syntaxCheck('PN104', 'bad-time', 'Unreadable time', 'error', {
+  fires: 'A timepoint line has no time, an impossible time of day, an unreadable offset, or a calendar date.',
+  example: '@ 25:10 handover',
+  fix: 'Write `@ day N HH:MM`, `@ HH:MM` or an offset such as `@ +2h30`. Calendar dates are not part of the format: use relative days.',
+});
+
+export const strayText = syntaxCheck('PN105', 'stray-text', 'Value without a key', 'error', {
+  fires: 'A number (or other text) appears where a key was expected.',
+  example: 'vitals hr 118 120',
+  fix: 'Give the number its key (`rr 20`), or remove it.',
+});
+
+export const badShorthand = syntaxCheck('PN106', 'bad-shorthand', 'Unreadable shorthand gas', 'error', {
+  fires: 'A shorthand gas (`abg pH/PCO2/PO2/HCO3`) has fewer than 2 or more than 4 numbers.',
+  example: 'abg 7.28/56/71/26/-2',
+  fix: 'Keep the order pH/PCO2/PO2/HCO3 and write further values as items: `abg 7.28/56/71/26, be -2`.',
+});
+
+export const unknownKey = readCheck('PN201', 'unknown-key', 'Unknown key', 'error', ['units'], FORMAT_RULE, {
+  fires: 'An item key is not one of the keys (or aliases) of its section.',
+  example: 'vitals hr 118, rrr 26',
+  fix: 'Use a key of the section; the quick fix offers the nearest ones. `pneumark` lists the keys of each section in grammar/README.md.',
+});
+
+export const unknownUnit = readCheck('PN202', 'unknown-unit', 'Unknown unit', 'error', ['units'], FORMAT_RULE, {
+  fires: 'The unit after a value is not a unit Pneumark knows.',
+  example: 'abg po2 71 mmhgg',
+  fix: 'Write one of the units the field takes (listed in the message), or leave the unit out to use the default.',
+});
+
+export const unitNotAllowed = readCheck('PN203', 'unit-not-allowed', 'Unit not allowed for this field', 'error', ['units'], FORMAT_RULE, {
+  fires: 'The unit is known but measures something else (e.g. a rate in mmHg).',
+  example: 'vitals hr 118 mmHg',
+  fix: 'Write a unit the field takes, or none.',
+});
+
+export const otherUnitLikely = readCheck('PN204', 'other-unit-likely', 'Value reads as another unit', 'warning', ['units', 'plausibility'], 'common practice, no source: the soft bounds of the field registry', {
+  fires: 'A value written without a unit is implausible in the unit in force but ordinary in another unit the field takes (po2 9.1 read in mmHg looks like kPa; temp 101.2 read in °C looks like °F). The value is not used in calculations until the unit is written.',
+  example: 'abg po2 9.1',
+  fix: 'Write the unit (`po2 9.1 kPa`), convert the value, or set `units gas kPa` for the note.',
+});
+
+export const unknownWord = readCheck('PN205', 'unknown-word', 'Unknown word value', 'error', ['units'], FORMAT_RULE, {
+  fires: 'A field that takes a word (sex, device, gas unit) has a word Pneumark does not know.',
+  example: 'oxygen device canula 2',
+  fix: 'Use one of the words listed in the message; the quick fix offers the nearest.',
+});
+
+export const duplicateKey = readCheck('PN206', 'duplicate-key', 'Stated twice at one timepoint', 'warning', ['timeline'], FORMAT_RULE, {
+  fires: 'The same field is stated twice in the same section at one timepoint. The later value is used.',
+  example: '@ 08:00\nabg po2 71\nabg po2 64',
+  fix: 'Remove one, or put the second measurement under its own timepoint (`@ 08:20`).',
+});

@@ -1,0 +1,97 @@
+/**
+ * Pressures that must come in order: PEEP ≤ plateau ≤ peak on the ventilator, and
+ * diastolic ≤ systolic blood pressure. Ventilator pressures compare the values in force at a
+ * timepoint (one may be carried), and report only where one of the pair was stated there.
+ */
+import type { InputValue, Timepoint } from '../analysis/model';
+import { toRange } from '../syntax/tree';
+import { formatNumber } from '../util/format';
+import { defineCheck, type CheckContext } from './check';
+
+function orderCheck(ctx: CheckContext, lowId: string, highId: string, message: (low: number, high: number) => string): void {
+  for (const tp of ctx.analysis.timeline.timepoints) {
+    const low = usableNumber(tp, lowId);
+    const high = usableNumber(tp, highId);
+    if (!low || !high || low.value <= high.value) continue;
+    const here = [high, low].find((v) => v.input.origin.kind === 'here');
+    if (!here) continue;
+    const other = here === high ? low : high;
+    const o = other.input.origin;
+    ctx.report({
+      range: toRange(here.input.stated.line, here.input.stated.item.span),
+      message: message(low.value, high.value),
+      ...(o.kind !== 'default' && o.kind !== 'here'
+        ? { related: [{ range: toRange(o.line, o.span), message: 'carried from here' }] }
+        : {}),
+    });
+  }
+}
+
+function usableNumber(tp: Timepoint, id: string): { input: InputValue; value: number } | null {
+  const input = tp.values.get(id);
+  if (!input?.stated.usable || input.stated.value === null) return null;
+  return { input, value: input.stated.value };
+}
+
+export const peepAbovePlateau = defineCheck({
+  code: 'PN303',
+  alias: 'peep-above-plateau',
+  title: 'PEEP above plateau pressure',
+  severity: 'error',
+  tags: ['plausibility'],
+  doc: {
+    fires: 'PEEP is higher than the plateau pressure in force at the same timepoint. Plateau pressure includes PEEP, so it cannot be lower.',
+    example: 'vent peep 14, plateau 12',
+    fix: 'Check both values; a plateau written as a driving pressure (plateau − PEEP) is a common slip.',
+  },
+  source: 'respiratory mechanics: plateau pressure is measured above atmospheric and includes PEEP (common practice, no source)',
+  run(ctx) {
+    orderCheck(ctx, 'peep', 'plateau', (low, high) => `PEEP ${formatNumber(low, 0)} is above the plateau pressure ${formatNumber(high, 0)} cmH2O; plateau pressure includes PEEP.`);
+  },
+});
+
+export const plateauAbovePeak = defineCheck({
+  code: 'PN304',
+  alias: 'plateau-above-peak',
+  title: 'Plateau above peak pressure',
+  severity: 'error',
+  tags: ['plausibility'],
+  doc: {
+    fires: 'The plateau pressure is higher than the peak pressure at the same timepoint; the plateau is measured after the peak, once flow stops.',
+    example: 'vent plateau 34, peak 29',
+    fix: 'Check whether the two were swapped.',
+  },
+  source: 'respiratory mechanics: peak = plateau + resistive pressure (common practice, no source)',
+  run(ctx) {
+    orderCheck(ctx, 'plateau', 'peak', (low, high) => `Plateau pressure ${formatNumber(low, 0)} is above the peak pressure ${formatNumber(high, 0)} cmH2O; were they swapped?`);
+  },
+});
+
+export const systolicBelowDiastolic = defineCheck({
+  code: 'PN305',
+  alias: 'systolic-below-diastolic',
+  title: 'Systolic below diastolic',
+  severity: 'error',
+  tags: ['plausibility'],
+  doc: {
+    fires: 'A blood pressure is written with the systolic value lower than the diastolic.',
+    example: 'vitals bp 58/96',
+    fix: 'Write systolic/diastolic: `bp 96/58`. The quick fix swaps them.',
+  },
+  source: 'definition of systolic and diastolic pressure, no source needed',
+  run(ctx) {
+    for (const tp of ctx.analysis.timeline.timepoints) {
+      for (const s of tp.stated) {
+        const [sys, dia] = s.fieldId === 'bp' && s.parts ? s.parts : [];
+        const value = s.item.value;
+        if (sys === undefined || dia === undefined || sys >= dia || value?.kind !== 'pair') continue;
+        const [a, b] = value.parts;
+        ctx.report({
+          range: toRange(s.line, value.span),
+          message: `Blood pressure ${value.text}: the systolic value is below the diastolic.`,
+          fixes: a && b ? [{ title: `Swap to ${b.text}/${a.text}`, edits: [{ range: toRange(s.line, value.span), newText: `${b.text}/${a.text}` }] }] : [],
+        });
+      }
+    }
+  },
+});

@@ -1,0 +1,68 @@
+/**
+ * The registry of checks: an explicit list, validated when it loads. To add a check, write
+ * it in its own file with `defineCheck`, give it the next free code in its range, and add it
+ * here; the docs (`npm run docs`) and the SARIF rule list come from this list.
+ *
+ * Code ranges: PN1xx syntax, PN2xx units and keys, PN3xx plausibility and timeline,
+ * PN4xx physiology, PN5xx privacy, PN9xx internal.
+ */
+import type { CheckDef } from './check';
+import { badShorthand, badTime, decimalComma, duplicateKey, missingValue, otherUnitLikely, strayText, unitNotAllowed, unknownKey, unknownSection, unknownUnit, unknownWord } from './collected';
+import { internalError } from './internal';
+import { peepAbovePlateau, plateauAbovePeak, systolicBelowDiastolic } from './pressure-order';
+import { timeGoesBack } from './time-order';
+import { fio2OutOfRange, impossibleValue, saturationAbove100, unusualValue } from './value-bounds';
+
+export const CHECKS: readonly CheckDef[] = validateCheckList([
+  unknownSection,
+  missingValue,
+  decimalComma,
+  badTime,
+  strayText,
+  badShorthand,
+  unknownKey,
+  unknownUnit,
+  unitNotAllowed,
+  otherUnitLikely,
+  unknownWord,
+  duplicateKey,
+  impossibleValue,
+  unusualValue,
+  peepAbovePlateau,
+  plateauAbovePeak,
+  systolicBelowDiastolic,
+  saturationAbove100,
+  fio2OutOfRange,
+  timeGoesBack,
+  internalError,
+]);
+
+export function validateCheckList(list: readonly CheckDef[]): readonly CheckDef[] {
+  const codes = new Set<string>();
+  const aliases = new Set<string>();
+  for (const c of list) {
+    if (!/^PN\d{3}$/.test(c.code)) throw new Error(`check ${c.alias}: code ${c.code} is not PNnnn`);
+    if (!/^[a-z0-9]+(-[a-z0-9]+)*$/.test(c.alias)) throw new Error(`check ${c.code}: alias ${c.alias} is not kebab-case`);
+    if (codes.has(c.code)) throw new Error(`duplicate check code ${c.code}`);
+    if (aliases.has(c.alias)) throw new Error(`duplicate check alias ${c.alias}`);
+    if (!c.source.trim() || !c.doc.fires.trim() || !c.doc.fix.trim() || !c.doc.example.trim()) throw new Error(`check ${c.code} lacks documentation or a source`);
+    codes.add(c.code);
+    aliases.add(c.alias);
+  }
+  return list;
+}
+
+const byKey = new Map<string, CheckDef>();
+for (const c of CHECKS) {
+  byKey.set(c.code, c);
+  byKey.set(c.alias, c);
+}
+
+export function checkByCodeOrAlias(key: string): CheckDef | undefined {
+  return byKey.get(key) ?? byKey.get(key.toUpperCase());
+}
+
+/** Anchor of a check's section in docs/checks.md. */
+export function docAnchor(check: Pick<CheckDef, 'code' | 'alias'>): string {
+  return `${check.code.toLowerCase()}-${check.alias}`;
+}

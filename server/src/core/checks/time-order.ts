@@ -1,0 +1,31 @@
+/** Timepoints must move forward in time. */
+import { toRange } from '../syntax/tree';
+import { defineCheck } from './check';
+
+export const timeGoesBack = defineCheck({
+  code: 'PN308',
+  alias: 'time-goes-back',
+  title: 'Timepoint earlier than the one before',
+  severity: 'warning',
+  tags: ['timeline'],
+  doc: {
+    fires: 'A timepoint with an explicit day is earlier than the timepoint before it. (A clock time without a day that is earlier than the previous one is read as the next day.)',
+    example: '@ day 2 08:00\n@ day 1 09:00',
+    fix: 'Put timepoints in order, or correct the day.',
+  },
+  source: 'format rule (grammar/README.md)',
+  run(ctx) {
+    let last: number | null = null;
+    const { tree, timeline } = ctx.analysis;
+    for (const tp of timeline.timepoints) {
+      const m = tp.time.minutes;
+      if (m === null) continue;
+      if (last !== null && m < last && tp.line !== null) {
+        const node = tree.lines[tp.line];
+        const span = node?.kind === 'timepoint' && node.time ? node.time.span : { start: 0, end: node?.text.length ?? 0 };
+        ctx.report({ range: toRange(tp.line, span), message: `This timepoint (${tp.label}) is earlier than the one before it.` });
+      }
+      last = m;
+    }
+  },
+});

@@ -1,0 +1,146 @@
+/**
+ * Impossible and unusual values: every stated number against its field's hard and soft
+ * bounds (field registry). Saturations above 100 % and FiO2 outside 0.21–1.0 have checks
+ * of their own and are left to them.
+ */
+import { softBounds, within } from '../analysis/bounds';
+import type { StatedValue } from '../analysis/model';
+import { fieldById, type Bounds, type FieldDef } from '../fields/registry';
+import { displayUnit } from '../analysis/read-value';
+import { convert, unitById } from '../fields/units';
+import { toRange } from '../syntax/tree';
+import { formatNumber } from '../util/format';
+import { defineCheck, type CheckContext } from './check';
+
+const OWN_CHECKS = new Set(['fio2']);
+const SATURATIONS = new Set(['spo2', 'sao2', 'svo2']);
+
+/** Every stated value with the barometric pressure in force where it was stated. */
+export function* statedWithContext(ctx: CheckContext): Generator<{ stated: StatedValue; barometricMmhg: number | null }> {
+  const { timeline } = ctx.analysis;
+  for (const stated of timeline.header) yield { stated, barometricMmhg: null };
+  for (const tp of timeline.timepoints) for (const stated of tp.stated) yield { stated, barometricMmhg: tp.barometricMmhg };
+}
+
+function numbersOf(s: StatedValue): number[] {
+  if (s.value !== null) return [s.value];
+  return s.parts ? [...s.parts] : [];
+}
+
+function describe(bounds: Bounds, field: FieldDef, s: StatedValue): string {
+  const unit = unitById(s.readUnit ?? field.unit ?? '') ?? unitById(field.unit ?? '');
+  const canonical = unitById(field.unit ?? '');
+  const show = (v: number) => {
+    const inRead = unit && canonical ? convert(v, canonical, unit) : v;
+    return `${formatNumber(inRead ?? v, field.decimals)}${unit && unit.id !== 'fraction' && unit.id !== 'ph' ? ` ${displayUnit(unit.id)}` : ''}`;
+  };
+  if (bounds.min !== undefined && bounds.max !== undefined) return `${show(bounds.min)} to ${show(bounds.max)}`;
+  if (bounds.min !== undefined) return `at least ${show(bounds.min)}`;
+  return `at most ${show(bounds.max ?? 0)}`;
+}
+
+function outOfBounds(s: StatedValue, bounds: Bounds | undefined): boolean {
+  return numbersOf(s).some((v) => !within(v, bounds));
+}
+
+export const impossibleValue = defineCheck({
+  code: 'PN301',
+  alias: 'impossible-value',
+  title: 'Impossible value',
+  severity: 'error',
+  tags: ['plausibility'],
+  doc: {
+    fires: 'A value lies outside the hard bounds of its field: physically or physiologically impossible. The value is not used in any calculation.',
+    example: 'abg ph 8.4',
+    fix: 'Check the transcription and the unit. The bounds of each field and their sources are listed in grammar/README.md.',
+  },
+  source: 'field registry bounds; each field names its source (mostly common practice, no source)',
+  run(ctx) {
+    for (const { stated } of statedWithContext(ctx)) {
+      const field = fieldById(stated.fieldId);
+      if (!field?.hard || OWN_CHECKS.has(field.id) || stated.readUnit === null || stated.unitDoubt) continue;
+      if (SATURATIONS.has(field.id) && numbersOf(stated).every((v) => v >= 0)) continue;
+      if (!outOfBounds(stated, field.hard)) continue;
+      ctx.report({
+        range: toRange(stated.line, stated.item.value?.span ?? stated.item.span),
+        message: `${field.label} ${stated.item.value?.text ?? ''} is impossible (expected ${describe(field.hard, field, stated)}); it is not used in calculations.`,
+      });
+    }
+  },
+});
+
+export const unusualValue = defineCheck({
+  code: 'PN302',
+  alias: 'unusual-value',
+  title: 'Unusual value',
+  severity: 'warning',
+  tags: ['plausibility'],
+  doc: {
+    fires: 'A value is possible but outside the usual (soft) bounds of its field: worth a second look at the unit or the transcription. Low arterial gas pressures are not flagged where the barometric pressure is below 500 mmHg, since they are real at extreme altitude.',
+    example: 'vitals hr 236',
+    fix: 'Confirm the value; if it is right, the warning can stay (or the check can be switched off in settings).',
+  },
+  source: 'field registry bounds; each field names its source (mostly common practice, no source)',
+  run(ctx) {
+    for (const { stated, barometricMmhg } of statedWithContext(ctx)) {
+      const field = fieldById(stated.fieldId);
+      if (!field?.soft || OWN_CHECKS.has(field.id) || !stated.usable || stated.readUnit === null || stated.unitDoubt) continue;
+      if (field.hard && outOfBounds(stated, field.hard)) continue;
+      const soft = softBounds(field, { barometricMmhg });
+      if (!outOfBounds(stated, soft)) continue;
+      ctx.report({
+        range: toRange(stated.line, stated.item.value?.span ?? stated.item.span),
+        message: `${field.label} ${stated.item.value?.text ?? ''} is unusual (usually ${describe(soft ?? {}, field, stated)}): check the unit and the transcription.`,
+      });
+    }
+  },
+});
+
+export const saturationAbove100 = defineCheck({
+  code: 'PN306',
+  alias: 'saturation-above-100',
+  title: 'Saturation above 100 %',
+  severity: 'error',
+  tags: ['plausibility'],
+  doc: {
+    fires: 'An oxygen saturation (SpO2, SaO2, SvO2) is above 100 %.',
+    example: 'vitals spo2 104',
+    fix: 'Correct the transcription; a saturation cannot exceed 100 %.',
+  },
+  source: 'definition of saturation (a fraction of haemoglobin), no source needed',
+  run(ctx) {
+    for (const { stated } of statedWithContext(ctx)) {
+      if (!SATURATIONS.has(stated.fieldId) || stated.value === null || stated.value <= 100) continue;
+      ctx.report({
+        range: toRange(stated.line, stated.item.value?.span ?? stated.item.span),
+        message: `${fieldById(stated.fieldId)?.label ?? stated.fieldId} ${stated.item.value?.text ?? ''} % is above 100 %, which is impossible.`,
+      });
+    }
+  },
+});
+
+export const fio2OutOfRange = defineCheck({
+  code: 'PN307',
+  alias: 'fio2-out-of-range',
+  title: 'FiO2 outside 0.21–1.0',
+  severity: 'error',
+  tags: ['plausibility', 'units'],
+  doc: {
+    fires: 'An FiO2 is below 0.21 (21 %) or above 1.0 (100 %). A bare number up to 1 is read as a fraction, above 1 as a percentage, so `fio2 4` reads as 4 %.',
+    example: 'oxygen mask, fio2 4',
+    fix: 'Write a fraction (0.4) or a percentage (40 %). For a flow, use the device flow (`oxygen cannula 4 L/min`).',
+  },
+  source: 'common practice, no source: air is 0.21 and pure oxygen 1.0',
+  run(ctx) {
+    for (const { stated } of statedWithContext(ctx)) {
+      if (stated.fieldId !== 'fio2' || stated.value === null) continue;
+      if (stated.value >= 0.21 - 1e-9 && stated.value <= 1 + 1e-9) continue;
+      const written = stated.item.value?.text ?? '';
+      const reading = stated.readUnit === '%' ? `${written} %` : written;
+      ctx.report({
+        range: toRange(stated.line, stated.item.value?.span ?? stated.item.span),
+        message: `FiO2 ${reading} is ${stated.value < 0.21 ? 'below 0.21 (room air)' : 'above 1.0 (pure oxygen)'}; it is not used in calculations.`,
+      });
+    }
+  },
+});

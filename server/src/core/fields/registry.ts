@@ -1,0 +1,164 @@
+/**
+ * The field registry: one declarative row per thing a note can state.
+ * Everything that needs to know about a key (parser, checks, hovers, completion, exports)
+ * reads it from here. To add a field, add a row; `tests/core/registry.test.ts` validates
+ * the table with zod and checks that aliases are unambiguous within a section.
+ *
+ * Bounds are in the field's canonical unit. `hard` = impossible (an error); `soft` = possible
+ * but unusual (a warning: check the unit or the transcription). Each row names the source of
+ * its bounds; "common practice" marks a rule of thumb with no single published source.
+ */
+import type { SectionId } from './sections';
+import type { Dimension } from './units';
+
+export type FieldKind = 'number' | 'pair' | 'word';
+
+export interface Bounds {
+  readonly min?: number;
+  readonly max?: number;
+}
+
+export interface LoincCode {
+  readonly code: string;
+  readonly display: string;
+  /** true when the code was recalled rather than read from the LOINC table. */
+  readonly fromMemory?: boolean;
+}
+
+export interface FieldDef {
+  readonly id: string;
+  readonly label: string;
+  /** Short name for compact output (defaults to the canonical key). */
+  readonly short?: string;
+  readonly description: string;
+  readonly sections: readonly SectionId[];
+  /** Keys as typed in a note, lower case; the first is the canonical key. */
+  readonly aliases: readonly string[];
+  readonly kind: FieldKind;
+  readonly dimension?: Dimension;
+  /** Canonical unit id (internal unit of the core). */
+  readonly unit?: string;
+  /** Unit ids a note may write for this field. */
+  readonly units?: readonly string[];
+  /**
+   * How a bare number is read: 'canonical' (the canonical unit), 'gas' (the note's gas unit),
+   * 'fraction-or-percent' (≤ 1 is a fraction, otherwise a percentage).
+   */
+  readonly bare?: 'canonical' | 'gas' | 'fraction-or-percent';
+  readonly hard?: Bounds;
+  readonly soft?: Bounds;
+  readonly boundsSource?: string;
+  readonly loinc?: LoincCode;
+  /** For word fields: the words accepted (lower case), mapped to their canonical spelling. */
+  readonly words?: Readonly<Record<string, string>>;
+  /** For word fields: whether a word outside `words` is accepted as it is. */
+  readonly openWords?: boolean;
+  /** Decimal places used when the value is written back or shown. */
+  readonly decimals: number;
+}
+
+const CP = 'common practice, no source';
+
+export const FIELDS: readonly FieldDef[] = [
+  // ── patient ───────────────────────────────────────────────────────────
+  { id: 'age', label: 'Age', description: 'Age in years.', sections: ['patient'], aliases: ['age'], kind: 'number', dimension: 'age', unit: 'y', units: ['y', 'mo'], hard: { min: 0, max: 130 }, boundsSource: CP, loinc: { code: '30525-0', display: 'Age', fromMemory: true }, decimals: 0 },
+  { id: 'sex', label: 'Sex', description: 'Sex used by predicted-body-weight equations (female or male).', sections: ['patient'], aliases: ['sex'], kind: 'word', words: { female: 'female', f: 'female', woman: 'female', male: 'male', m: 'male', man: 'male' }, decimals: 0 },
+  { id: 'height', label: 'Height', description: 'Standing height, used for predicted body weight.', sections: ['patient'], aliases: ['height', 'ht'], kind: 'number', dimension: 'length', unit: 'cm', units: ['cm', 'm', 'in', 'ft'], hard: { min: 20, max: 275 }, soft: { min: 120, max: 220 }, boundsSource: `${CP}; soft range is where the ARDS Network predicted-body-weight equations were used`, loinc: { code: '8302-2', display: 'Body height' }, decimals: 0 },
+  { id: 'weight', label: 'Weight', description: 'Actual body weight.', sections: ['patient'], aliases: ['weight', 'wt'], kind: 'number', dimension: 'mass', unit: 'kg', units: ['kg', 'lb'], hard: { min: 0.3, max: 700 }, soft: { min: 25, max: 250 }, boundsSource: CP, loinc: { code: '29463-7', display: 'Body weight' }, decimals: 1 },
+
+  // ── place ─────────────────────────────────────────────────────────────
+  { id: 'altitude', label: 'Altitude', description: 'Altitude above sea level; barometric pressure is estimated from it when not stated.', sections: ['place'], aliases: ['altitude', 'alt', 'elevation'], kind: 'number', dimension: 'length', unit: 'm', units: ['m', 'ft'], hard: { min: -500, max: 9000 }, boundsSource: `${CP}: the lowest dry land is about −430 m and the highest summit about 8,850 m`, decimals: 0 },
+  { id: 'barometric', label: 'Barometric pressure', short: 'PB', description: 'Ambient barometric pressure where the patient breathes.', sections: ['place'], aliases: ['barometric', 'pb', 'pressure'], kind: 'number', dimension: 'gas-pressure', unit: 'mmHg', units: ['mmHg', 'kPa'], bare: 'gas', hard: { min: 150, max: 3000 }, soft: { min: 240, max: 800 }, boundsSource: `${CP}; about 253 mmHg was measured on the summit of Mount Everest (West JB et al., J Appl Physiol 1983;54:1188–1194, from memory); hyperbaric chambers reach about 2,300 mmHg`, decimals: 0 },
+
+  // ── units ─────────────────────────────────────────────────────────────
+  { id: 'gas_unit', label: 'Gas unit', description: 'Unit of gas pressures written without a unit in this note.', sections: ['units'], aliases: ['gas'], kind: 'word', words: { mmhg: 'mmHg', kpa: 'kPa', torr: 'mmHg' }, decimals: 0 },
+
+  // ── vitals ────────────────────────────────────────────────────────────
+  { id: 'hr', label: 'Heart rate', short: 'HR', description: 'Heart rate.', sections: ['vitals'], aliases: ['hr', 'pulse', 'hrate'], kind: 'number', dimension: 'rate', unit: '/min', units: ['/min'], hard: { min: 0, max: 350 }, soft: { min: 30, max: 220 }, boundsSource: CP, loinc: { code: '8867-4', display: 'Heart rate' }, decimals: 0 },
+  { id: 'rr', label: 'Respiratory rate', short: 'RR', description: 'Measured (total) respiratory rate.', sections: ['vitals'], aliases: ['rr', 'resp', 'rrate'], kind: 'number', dimension: 'rate', unit: '/min', units: ['/min'], hard: { min: 0, max: 150 }, soft: { max: 60 }, boundsSource: CP, loinc: { code: '9279-1', display: 'Respiratory rate' }, decimals: 0 },
+  { id: 'spo2', label: 'SpO2', short: 'SpO2', description: 'Oxygen saturation by pulse oximetry.', sections: ['vitals'], aliases: ['spo2', 'sats', 'sat'], kind: 'number', dimension: 'percent', unit: '%sat', units: ['%sat'], hard: { min: 0, max: 100 }, soft: { min: 70 }, boundsSource: `${CP}; oximeter accuracy falls below about 70 %`, loinc: { code: '59408-5', display: 'Oxygen saturation in Arterial blood by Pulse oximetry' }, decimals: 0 },
+  { id: 'temp', label: 'Temperature', description: 'Body temperature.', sections: ['vitals'], aliases: ['temp', 't', 'temperature'], kind: 'number', dimension: 'temperature', unit: 'C', units: ['C', 'F'], hard: { min: 13, max: 47 }, soft: { min: 30, max: 42 }, boundsSource: `${CP}; survival after accidental hypothermia to 13.7 °C has been reported (Gilbert M et al., Lancet 2000;355:375–376, from memory)`, loinc: { code: '8310-5', display: 'Body temperature' }, decimals: 1 },
+  { id: 'bp', label: 'Blood pressure', short: 'BP', description: 'Systolic/diastolic arterial pressure.', sections: ['vitals'], aliases: ['bp', 'nibp', 'abp'], kind: 'pair', dimension: 'gas-pressure', unit: 'mmHg', units: ['mmHg'], hard: { min: 0, max: 350 }, soft: { min: 40, max: 250 }, boundsSource: CP, loinc: { code: '85354-9', display: 'Blood pressure panel', fromMemory: true }, decimals: 0 },
+  { id: 'etco2', label: 'End-tidal CO2', short: 'EtCO2', description: 'End-tidal carbon dioxide pressure.', sections: ['vitals', 'vent'], aliases: ['etco2', 'petco2'], kind: 'number', dimension: 'gas-pressure', unit: 'mmHg', units: ['mmHg', 'kPa'], bare: 'gas', hard: { min: 0, max: 200 }, soft: { max: 100 }, boundsSource: CP, decimals: 0 },
+  { id: 'cardiac_output', label: 'Cardiac output', description: 'Cardiac output, used for oxygen delivery.', sections: ['vitals'], aliases: ['co', 'cardiac_output'], kind: 'number', dimension: 'flow', unit: 'L/min', units: ['L/min'], hard: { min: 0.1, max: 40 }, soft: { min: 1.5, max: 15 }, boundsSource: CP, decimals: 1 },
+
+  // ── oxygen and ventilator settings ───────────────────────────────────
+  { id: 'device', label: 'Oxygen device', description: 'How oxygen is given; written first on an oxygen line.', sections: ['oxygen'], aliases: ['device'], kind: 'word', words: { 'room air': 'room air', air: 'room air', ra: 'room air', cannula: 'cannula', nc: 'cannula', nasal: 'cannula', mask: 'mask', venturi: 'venturi', reservoir: 'reservoir', nrb: 'reservoir', hfnc: 'hfnc', highflow: 'hfnc', niv: 'niv', bilevel: 'niv', cpap: 'cpap' }, decimals: 0 },
+  { id: 'o2_flow', label: 'Oxygen flow', description: 'Oxygen (or total gas) flow of the device.', sections: ['oxygen'], aliases: ['flow', 'o2flow'], kind: 'number', dimension: 'flow', unit: 'L/min', units: ['L/min'], hard: { min: 0, max: 80 }, soft: { max: 70 }, boundsSource: CP, loinc: { code: '3151-8', display: 'Inhaled oxygen flow rate' }, decimals: 1 },
+  { id: 'fio2', label: 'FiO2', short: 'FiO2', description: 'Fraction of inspired oxygen (a fraction 0.21–1.0, or a percentage).', sections: ['oxygen', 'vent', 'abg'], aliases: ['fio2', 'fi02', 'o2'], kind: 'number', dimension: 'fraction', unit: 'fraction', units: ['fraction', '%'], bare: 'fraction-or-percent', hard: { min: 0.21, max: 1 }, boundsSource: `${CP}: air is 0.21 and pure oxygen 1.0`, loinc: { code: '3150-0', display: 'Inhaled oxygen concentration' }, decimals: 2 },
+  { id: 'ipap', label: 'IPAP', short: 'IPAP', description: 'Inspiratory positive airway pressure (non-invasive ventilation).', sections: ['oxygen'], aliases: ['ipap'], kind: 'number', dimension: 'airway-pressure', unit: 'cmH2O', units: ['cmH2O', 'mbar'], hard: { min: 0, max: 50 }, soft: { max: 30 }, boundsSource: CP, decimals: 0 },
+  { id: 'epap', label: 'EPAP', short: 'EPAP', description: 'Expiratory positive airway pressure (non-invasive ventilation); counts as PEEP.', sections: ['oxygen'], aliases: ['epap'], kind: 'number', dimension: 'airway-pressure', unit: 'cmH2O', units: ['cmH2O', 'mbar'], hard: { min: 0, max: 30 }, soft: { max: 20 }, boundsSource: CP, decimals: 0 },
+  { id: 'cpap_level', label: 'CPAP', short: 'CPAP', description: 'Continuous positive airway pressure level; counts as PEEP.', sections: ['oxygen'], aliases: ['level', 'pressure'], kind: 'number', dimension: 'airway-pressure', unit: 'cmH2O', units: ['cmH2O', 'mbar'], hard: { min: 0, max: 30 }, soft: { max: 20 }, boundsSource: CP, decimals: 0 },
+  { id: 'mode', label: 'Ventilator mode', description: 'Ventilation mode, one word (e.g. VC, PC, PS, SIMV, APRV).', sections: ['vent'], aliases: ['mode'], kind: 'word', openWords: true, words: { vc: 'VC', pc: 'PC', prvc: 'PRVC', ps: 'PS', simv: 'SIMV', aprv: 'APRV', cpap: 'CPAP', hfov: 'HFOV' }, decimals: 0 },
+  { id: 'vt', label: 'Tidal volume', short: 'VT', description: 'Tidal volume (set or delivered).', sections: ['vent'], aliases: ['vt', 'tidal'], kind: 'number', dimension: 'volume', unit: 'mL', units: ['mL', 'L'], hard: { min: 0, max: 3000 }, soft: { max: 1200 }, boundsSource: CP, loinc: { code: '20112-9', display: 'Tidal volume setting Ventilator' }, decimals: 0 },
+  { id: 'vent_rate', label: 'Set rate', description: 'Set ventilator rate.', sections: ['vent'], aliases: ['rate', 'f', 'set_rate'], kind: 'number', dimension: 'rate', unit: '/min', units: ['/min'], hard: { min: 0, max: 150 }, soft: { max: 60 }, boundsSource: CP, decimals: 0 },
+  { id: 'peep', label: 'PEEP', short: 'PEEP', description: 'Positive end-expiratory pressure.', sections: ['vent'], aliases: ['peep'], kind: 'number', dimension: 'airway-pressure', unit: 'cmH2O', units: ['cmH2O', 'mbar'], hard: { min: 0, max: 50 }, soft: { max: 25 }, boundsSource: CP, loinc: { code: '20077-4', display: 'PEEP Respiratory system --on ventilator' }, decimals: 0 },
+  { id: 'plateau', label: 'Plateau pressure', description: 'End-inspiratory plateau pressure (inspiratory hold).', sections: ['vent'], aliases: ['plateau', 'pplat'], kind: 'number', dimension: 'airway-pressure', unit: 'cmH2O', units: ['cmH2O', 'mbar'], hard: { min: 0, max: 100 }, soft: { max: 40 }, boundsSource: CP, decimals: 0 },
+  { id: 'peak', label: 'Peak pressure', description: 'Peak inspiratory airway pressure.', sections: ['vent'], aliases: ['peak', 'ppeak', 'pip'], kind: 'number', dimension: 'airway-pressure', unit: 'cmH2O', units: ['cmH2O', 'mbar'], hard: { min: 0, max: 120 }, soft: { max: 50 }, boundsSource: CP, decimals: 0 },
+  { id: 'insp_flow', label: 'Inspiratory flow', description: 'Set inspiratory flow (constant-flow volume control).', sections: ['vent'], aliases: ['flow', 'insp_flow'], kind: 'number', dimension: 'flow', unit: 'L/min', units: ['L/min', 'L/s'], hard: { min: 0, max: 200 }, soft: { min: 10, max: 120 }, boundsSource: CP, decimals: 0 },
+  { id: 'mean_airway_pressure', label: 'Mean airway pressure', description: 'Mean airway pressure, for the oxygenation index.', sections: ['vent'], aliases: ['map', 'mawp', 'pmean'], kind: 'number', dimension: 'airway-pressure', unit: 'cmH2O', units: ['cmH2O', 'mbar'], hard: { min: 0, max: 60 }, soft: { max: 35 }, boundsSource: CP, decimals: 0 },
+  { id: 'pressure_support', label: 'Pressure support', description: 'Pressure support above PEEP.', sections: ['vent'], aliases: ['ps', 'support'], kind: 'number', dimension: 'airway-pressure', unit: 'cmH2O', units: ['cmH2O', 'mbar'], hard: { min: 0, max: 50 }, soft: { max: 30 }, boundsSource: CP, decimals: 0 },
+  { id: 'minute_volume', label: 'Measured minute volume', description: 'Exhaled minute volume read from the ventilator.', sections: ['vent'], aliases: ['ve', 'mv', 'minute_volume'], kind: 'number', dimension: 'flow', unit: 'L/min', units: ['L/min'], hard: { min: 0, max: 60 }, soft: { max: 30 }, boundsSource: CP, decimals: 1 },
+
+  // ── arterial gas ──────────────────────────────────────────────────────
+  { id: 'ph', label: 'pH (arterial)', short: 'pH', description: 'Arterial pH.', sections: ['abg'], aliases: ['ph'], kind: 'number', dimension: 'ph', unit: 'ph', units: ['ph'], hard: { min: 6.3, max: 8.0 }, soft: { min: 6.8, max: 7.8 }, boundsSource: `${CP}; survival near pH 6.5 has been reported, and a calculated arterial pH near 7.7 on the summit of Mount Everest (West JB et al., J Appl Physiol 1983, from memory)`, loinc: { code: '2744-1', display: 'pH of Arterial blood' }, decimals: 2 },
+  { id: 'paco2', label: 'PaCO2', short: 'PaCO2', description: 'Arterial partial pressure of carbon dioxide.', sections: ['abg'], aliases: ['pco2', 'paco2'], kind: 'number', dimension: 'gas-pressure', unit: 'mmHg', units: ['mmHg', 'kPa'], bare: 'gas', hard: { min: 5, max: 400 }, soft: { min: 15, max: 150 }, boundsSource: `${CP}; below the soft minimum is expected at extreme altitude (mean 13.3 mmHg at 8,400 m: Grocott MPW et al., NEJM 2009;360:140–149, from memory), so the soft minimum is waived where barometric pressure is below 500 mmHg`, loinc: { code: '2019-8', display: 'Carbon dioxide [Partial pressure] in Arterial blood' }, decimals: 0 },
+  { id: 'pao2', label: 'PaO2', short: 'PaO2', description: 'Arterial partial pressure of oxygen.', sections: ['abg'], aliases: ['po2', 'pao2'], kind: 'number', dimension: 'gas-pressure', unit: 'mmHg', units: ['mmHg', 'kPa'], bare: 'gas', hard: { min: 10, max: 2500 }, soft: { min: 30, max: 700 }, boundsSource: `${CP}; values near 20–25 mmHg were measured at 8,400 m (Grocott MPW et al., NEJM 2009, from memory), so the soft minimum is waived where barometric pressure is below 500 mmHg; the hard maximum allows hyperbaric oxygen`, loinc: { code: '2703-7', display: 'Oxygen [Partial pressure] in Arterial blood' }, decimals: 0 },
+  { id: 'hco3', label: 'HCO3 (arterial)', short: 'HCO3', description: 'Arterial bicarbonate as reported by the gas analyser.', sections: ['abg'], aliases: ['hco3', 'bicarb'], kind: 'number', dimension: 'substance-concentration', unit: 'mmol/L', units: ['mmol/L', 'mEq/L'], hard: { min: 1, max: 80 }, soft: { min: 5, max: 50 }, boundsSource: CP, loinc: { code: '1960-4', display: 'Bicarbonate [Moles/volume] in Arterial blood' }, decimals: 1 },
+  { id: 'base_excess', label: 'Base excess', short: 'BE', description: 'Base excess (negative for a base deficit).', sections: ['abg', 'vbg'], aliases: ['be', 'sbe', 'base_excess'], kind: 'number', dimension: 'substance-concentration', unit: 'mmol/L', units: ['mmol/L', 'mEq/L'], hard: { min: -50, max: 50 }, soft: { min: -25, max: 25 }, boundsSource: CP, loinc: { code: '1925-7', display: 'Base excess in Arterial blood by calculation' }, decimals: 1 },
+  { id: 'sao2', label: 'SaO2', short: 'SaO2', description: 'Arterial oxygen saturation measured by co-oximetry.', sections: ['abg'], aliases: ['sao2', 'so2'], kind: 'number', dimension: 'percent', unit: '%sat', units: ['%sat'], hard: { min: 0, max: 100 }, soft: { min: 50 }, boundsSource: CP, loinc: { code: '2708-6', display: 'Oxygen saturation in Arterial blood' }, decimals: 0 },
+
+  // ── venous gas ────────────────────────────────────────────────────────
+  { id: 'ph_venous', label: 'pH (venous)', short: 'pH(v)', description: 'Venous pH.', sections: ['vbg'], aliases: ['ph'], kind: 'number', dimension: 'ph', unit: 'ph', units: ['ph'], hard: { min: 6.3, max: 8.0 }, soft: { min: 6.8, max: 7.8 }, boundsSource: CP, loinc: { code: '2746-6', display: 'pH of Venous blood', fromMemory: true }, decimals: 2 },
+  { id: 'pvco2', label: 'PvCO2', short: 'PvCO2', description: 'Venous partial pressure of carbon dioxide.', sections: ['vbg'], aliases: ['pco2', 'pvco2'], kind: 'number', dimension: 'gas-pressure', unit: 'mmHg', units: ['mmHg', 'kPa'], bare: 'gas', hard: { min: 5, max: 400 }, soft: { min: 15, max: 160 }, boundsSource: CP, loinc: { code: '2021-4', display: 'Carbon dioxide [Partial pressure] in Venous blood', fromMemory: true }, decimals: 0 },
+  { id: 'pvo2', label: 'PvO2', short: 'PvO2', description: 'Venous partial pressure of oxygen.', sections: ['vbg'], aliases: ['po2', 'pvo2'], kind: 'number', dimension: 'gas-pressure', unit: 'mmHg', units: ['mmHg', 'kPa'], bare: 'gas', hard: { min: 5, max: 700 }, soft: { min: 15, max: 100 }, boundsSource: CP, loinc: { code: '2705-2', display: 'Oxygen [Partial pressure] in Venous blood', fromMemory: true }, decimals: 0 },
+  { id: 'hco3_venous', label: 'HCO3 (venous)', short: 'HCO3(v)', description: 'Venous bicarbonate as reported by the gas analyser.', sections: ['vbg'], aliases: ['hco3', 'bicarb'], kind: 'number', dimension: 'substance-concentration', unit: 'mmol/L', units: ['mmol/L', 'mEq/L'], hard: { min: 1, max: 80 }, soft: { min: 5, max: 50 }, boundsSource: CP, loinc: { code: '14627-4', display: 'Bicarbonate [Moles/volume] in Venous blood', fromMemory: true }, decimals: 1 },
+  { id: 'svo2', label: 'SvO2', short: 'SvO2', description: 'Venous oxygen saturation.', sections: ['vbg'], aliases: ['svo2', 'so2', 'scvo2'], kind: 'number', dimension: 'percent', unit: '%sat', units: ['%sat'], hard: { min: 0, max: 100 }, soft: { min: 20, max: 95 }, boundsSource: CP, loinc: { code: '2711-0', display: 'Oxygen saturation in Venous blood', fromMemory: true }, decimals: 0 },
+
+  // ── laboratory ────────────────────────────────────────────────────────
+  { id: 'lactate', label: 'Lactate', description: 'Blood lactate.', sections: ['abg', 'vbg', 'labs'], aliases: ['lactate', 'lac'], kind: 'number', dimension: 'substance-concentration', unit: 'mmol/L', units: ['mmol/L'], hard: { min: 0, max: 40 }, soft: { max: 20 }, boundsSource: CP, loinc: { code: '32693-4', display: 'Lactate [Moles/volume] in Blood', fromMemory: true }, decimals: 1 },
+  { id: 'hb', label: 'Haemoglobin', short: 'Hb', description: 'Haemoglobin concentration.', sections: ['labs', 'abg', 'vbg'], aliases: ['hb', 'hgb', 'thb'], kind: 'number', dimension: 'mass-concentration', unit: 'g/dL', units: ['g/dL', 'g/L'], hard: { min: 0.5, max: 30 }, soft: { min: 3, max: 22 }, boundsSource: CP, loinc: { code: '718-7', display: 'Hemoglobin [Mass/volume] in Blood' }, decimals: 1 },
+  { id: 'na', label: 'Sodium', short: 'Na', description: 'Serum or plasma sodium.', sections: ['labs', 'abg', 'vbg'], aliases: ['na', 'sodium'], kind: 'number', dimension: 'substance-concentration', unit: 'mmol/L', units: ['mmol/L', 'mEq/L'], hard: { min: 80, max: 200 }, soft: { min: 110, max: 170 }, boundsSource: CP, loinc: { code: '2951-2', display: 'Sodium [Moles/volume] in Serum or Plasma' }, decimals: 0 },
+  { id: 'k', label: 'Potassium', short: 'K', description: 'Serum or plasma potassium.', sections: ['labs', 'abg', 'vbg'], aliases: ['k', 'potassium'], kind: 'number', dimension: 'substance-concentration', unit: 'mmol/L', units: ['mmol/L', 'mEq/L'], hard: { min: 0.5, max: 12 }, soft: { min: 1.5, max: 8 }, boundsSource: CP, loinc: { code: '2823-3', display: 'Potassium [Moles/volume] in Serum or Plasma' }, decimals: 1 },
+  { id: 'cl', label: 'Chloride', short: 'Cl', description: 'Serum or plasma chloride.', sections: ['labs', 'abg', 'vbg'], aliases: ['cl', 'chloride'], kind: 'number', dimension: 'substance-concentration', unit: 'mmol/L', units: ['mmol/L', 'mEq/L'], hard: { min: 40, max: 180 }, soft: { min: 70, max: 140 }, boundsSource: CP, loinc: { code: '2075-0', display: 'Chloride [Moles/volume] in Serum or Plasma' }, decimals: 0 },
+  { id: 'hco3_serum', label: 'Bicarbonate (serum)', short: 'HCO3(serum)', description: 'Serum bicarbonate or total CO2 from the laboratory.', sections: ['labs'], aliases: ['hco3', 'tco2', 'bicarb'], kind: 'number', dimension: 'substance-concentration', unit: 'mmol/L', units: ['mmol/L', 'mEq/L'], hard: { min: 1, max: 80 }, soft: { min: 5, max: 50 }, boundsSource: CP, loinc: { code: '1963-8', display: 'Bicarbonate [Moles/volume] in Serum or Plasma', fromMemory: true }, decimals: 0 },
+  { id: 'albumin', label: 'Albumin', description: 'Serum albumin (g/dL; write g/L explicitly).', sections: ['labs'], aliases: ['albumin', 'alb'], kind: 'number', dimension: 'mass-concentration', unit: 'g/dL', units: ['g/dL', 'g/L'], hard: { min: 0.3, max: 8 }, soft: { min: 1, max: 6 }, boundsSource: CP, loinc: { code: '1751-7', display: 'Albumin [Mass/volume] in Serum or Plasma' }, decimals: 1 },
+  { id: 'glucose', label: 'Glucose', description: 'Blood glucose.', sections: ['labs', 'abg', 'vbg'], aliases: ['glucose', 'glu'], kind: 'number', dimension: 'substance-concentration', unit: 'mmol/L', units: ['mmol/L'], hard: { min: 0.2, max: 150 }, soft: { min: 1.5, max: 40 }, boundsSource: CP, loinc: { code: '2345-7', display: 'Glucose [Mass/volume] in Serum or Plasma', fromMemory: true }, decimals: 1 },
+];
+
+const bySectionKey = new Map<string, FieldDef>();
+const byId = new Map<string, FieldDef>();
+for (const f of FIELDS) {
+  byId.set(f.id, f);
+  for (const s of f.sections) for (const a of f.aliases) if (!bySectionKey.has(`${s}:${a}`)) bySectionKey.set(`${s}:${a}`, f);
+}
+
+export function fieldFor(section: SectionId, key: string): FieldDef | undefined {
+  return bySectionKey.get(`${section}:${key.toLowerCase()}`);
+}
+
+export function fieldById(id: string): FieldDef | undefined {
+  return byId.get(id);
+}
+
+export function shortName(field: FieldDef): string {
+  return field.short ?? field.aliases[0] ?? field.id;
+}
+
+export function fieldsInSection(section: SectionId): readonly FieldDef[] {
+  return FIELDS.filter((f) => f.sections.includes(section));
+}
+
+/** All keys that may be written in a section (canonical and aliases). */
+export function keysInSection(section: SectionId): readonly string[] {
+  const keys: string[] = [];
+  for (const f of FIELDS) if (f.sections.includes(section)) keys.push(...f.aliases);
+  return keys;
+}
+
+/** Reads a word value for a word field; null when the word is not accepted. */
+export function canonicalWord(field: FieldDef, word: string): string | null {
+  const known = field.words?.[word.toLowerCase()];
+  if (known) return known;
+  return field.openWords ? word : null;
+}

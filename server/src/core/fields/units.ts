@@ -1,0 +1,127 @@
+/**
+ * Unit registry: every unit a note may write, its dimension, its UCUM code and how it
+ * converts to the dimension's base unit. Fields pick their canonical unit from here;
+ * conversion happens only at the edges (parsing and display).
+ */
+
+export type Dimension =
+  | 'gas-pressure'
+  | 'airway-pressure'
+  | 'fraction'
+  | 'percent'
+  | 'rate'
+  | 'temperature'
+  | 'volume'
+  | 'flow'
+  | 'mass-concentration'
+  | 'substance-concentration'
+  | 'length'
+  | 'mass'
+  | 'age'
+  | 'ph';
+
+export interface UnitDef {
+  /** Canonical spelling as written back into a note. */
+  readonly id: string;
+  readonly dimension: Dimension;
+  /** Other spellings accepted (matched case-insensitively). */
+  readonly aliases: readonly string[];
+  readonly ucum: string;
+  /** Value in this unit → value in the dimension's base unit. */
+  readonly toBase: (value: number) => number;
+  /** Value in the dimension's base unit → value in this unit. */
+  readonly fromBase: (value: number) => number;
+}
+
+/** Definitions of the units (exact where the unit is defined exactly). */
+/** The conventional millimetre of mercury: 13.5951 g/cm³ × 9.80665 m/s² × 1 mm = 133.322387415 Pa. */
+export const PASCAL_PER_MMHG = 133.322387415;
+export const MMHG_PER_KPA = 1000 / PASCAL_PER_MMHG; // 7.50062
+/** The conventional centimetre of water: 98.0665 Pa. */
+export const MMHG_PER_CMH2O = 98.0665 / PASCAL_PER_MMHG; // 0.735559
+export const CMH2O_PER_MBAR = 1 / 0.980665; // 1.019716...
+
+const linear = (factor: number) => ({
+  toBase: (v: number) => v * factor,
+  fromBase: (v: number) => v / factor,
+});
+
+function unit(
+  id: string,
+  dimension: Dimension,
+  ucum: string,
+  conversion: { toBase: (v: number) => number; fromBase: (v: number) => number },
+  aliases: readonly string[] = [],
+): UnitDef {
+  return { id, dimension, ucum, aliases, ...conversion };
+}
+
+/** Base units: mmHg, cmH2O, fraction, %, /min, °C, mL, L/min, g/dL, mmol/L, cm, kg, years, pH units. */
+export const UNITS: readonly UnitDef[] = [
+  unit('mmHg', 'gas-pressure', 'mm[Hg]', linear(1), ['mm hg', 'mmhg', 'torr']),
+  unit('kPa', 'gas-pressure', 'kPa', linear(MMHG_PER_KPA), ['kpa']),
+  unit('cmH2O', 'airway-pressure', 'cm[H2O]', linear(1), ['cmh2o', 'cm h2o', 'cmwater']),
+  unit('mbar', 'airway-pressure', 'mbar', linear(CMH2O_PER_MBAR), ['hpa']),
+  unit('fraction', 'fraction', '1', linear(1), []),
+  unit('%', 'fraction', '%', linear(0.01), ['percent', 'pct']),
+  unit('%sat', 'percent', '%', linear(1), ['%', 'percent']),
+  unit('/min', 'rate', '/min', linear(1), ['bpm', 'min-1', 'breaths/min', 'beats/min', '/m']),
+  unit('C', 'temperature', 'Cel', linear(1), ['°c', 'degc', 'c', 'celsius']),
+  unit('F', 'temperature', '[degF]', { toBase: (v) => ((v - 32) * 5) / 9, fromBase: (v) => (v * 9) / 5 + 32 }, ['°f', 'degf', 'f', 'fahrenheit']),
+  unit('mL', 'volume', 'mL', linear(1), ['ml', 'cc']),
+  unit('L', 'volume', 'L', linear(1000), ['l']),
+  unit('L/min', 'flow', 'L/min', linear(1), ['l/min', 'lpm', 'l/m', 'litres/min', 'liters/min']),
+  unit('L/s', 'flow', 'L/s', linear(60), ['l/s', 'l/sec']),
+  unit('g/dL', 'mass-concentration', 'g/dL', linear(1), ['g/dl']),
+  unit('g/L', 'mass-concentration', 'g/L', linear(0.1), ['g/l']),
+  unit('mmol/L', 'substance-concentration', 'mmol/L', linear(1), ['mmol/l']),
+  unit('mEq/L', 'substance-concentration', 'meq/L', linear(1), ['meq/l']),
+  unit('cm', 'length', 'cm', linear(1), []),
+  unit('m', 'length', 'm', linear(100), ['metres', 'meters']),
+  unit('in', 'length', '[in_i]', linear(2.54), ['inch', 'inches']),
+  unit('ft', 'length', '[ft_i]', linear(30.48), ['feet']),
+  unit('kg', 'mass', 'kg', linear(1), ['kgs']),
+  unit('lb', 'mass', '[lb_av]', linear(0.45359237), ['lbs']),
+  unit('y', 'age', 'a', linear(1), ['yr', 'yrs', 'years', 'year', 'a']),
+  unit('mo', 'age', 'mo', linear(1 / 12), ['months', 'month']),
+  unit('ph', 'ph', '[pH]', linear(1), []),
+];
+
+const byId = new Map<string, UnitDef>();
+const byLowerSpelling = new Map<string, UnitDef[]>();
+for (const u of UNITS) {
+  byId.set(u.id, u);
+  for (const spelling of [u.id, ...u.aliases]) {
+    const key = spelling.toLowerCase();
+    const list = byLowerSpelling.get(key);
+    if (list) list.push(u);
+    else byLowerSpelling.set(key, [u]);
+  }
+}
+
+export function unitById(id: string): UnitDef | undefined {
+  return byId.get(id);
+}
+
+/**
+ * Every unit a written token may mean. An exact-case match wins over a case-folded one
+ * (so `mL` and `ML` both read as millilitres, and `%` means whichever percent the field uses).
+ */
+export function unitsForSpelling(text: string): readonly UnitDef[] {
+  const exact = byId.get(text);
+  const folded = byLowerSpelling.get(text.toLowerCase()) ?? [];
+  if (exact) return [exact, ...folded.filter((u) => u !== exact)];
+  return folded;
+}
+
+export function isKnownUnitSpelling(text: string): boolean {
+  return unitsForSpelling(text).length > 0;
+}
+
+/** Converts between two units of one dimension; null when they do not share a dimension. */
+export function convert(value: number, from: UnitDef, to: UnitDef): number | null {
+  if (from.dimension !== to.dimension) return null;
+  if (from === to) return value;
+  const result = to.fromBase(from.toBase(value));
+  return Number.isFinite(result) ? result : null;
+}

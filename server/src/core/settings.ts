@@ -1,0 +1,38 @@
+/**
+ * Analysis settings: the conventions a user may switch. Defaults are the conventions pinned
+ * in grammar/README.md. The LSP server and the CLI validate user input with `settingsSchema`
+ * before it reaches the core.
+ */
+import { z } from 'zod';
+
+export const settingsSchema = z.object({
+  /** Unit of gas pressures written without one, unless the note's `units` line says otherwise. */
+  gasUnit: z.enum(['mmHg', 'kPa']).default('mmHg'),
+  /** Respiratory quotient for the alveolar gas equation. */
+  respiratoryQuotient: z.number().min(0.6).max(1.2).default(0.8),
+  /** Alveolar gas equation form. */
+  alveolarEquation: z.enum(['simplified', 'full']).default('simplified'),
+  /** Barometric model used when only altitude is given. */
+  barometricModel: z.enum(['west', 'standard']).default('west'),
+  /** Age-based upper normal of the A–a gradient. */
+  aaGradientRule: z.enum(['age-over-4-plus-4', 'age-plus-10-over-4', 'mellemgaard']).default('age-over-4-plus-4'),
+  /** PaO2 below this (mmHg) reads as hypoxaemia. */
+  hypoxaemiaBelowMmhg: z.number().min(20).max(100).default(60),
+  /** PaCO2 above this (mmHg) reads as hypercapnia. */
+  hypercapniaAboveMmhg: z.number().min(40).max(70).default(50),
+  /** PaCO2 below this (mmHg) reads as hypocapnia. */
+  hypocapniaBelowMmhg: z.number().min(15).max(40).default(35),
+  /** Hüfner constant for oxygen content (mL O2 per g Hb). */
+  hufnerConstant: z.union([z.literal(1.34), z.literal(1.36), z.literal(1.39)]).default(1.34),
+  /** Checks switched off by code or alias. */
+  disabledChecks: z.array(z.string().max(64)).max(200).default([]),
+});
+
+export type Settings = z.infer<typeof settingsSchema>;
+
+export const DEFAULT_SETTINGS: Settings = settingsSchema.parse({});
+
+/** Merges partial, already validated settings over the defaults. */
+export function withDefaults(partial: Partial<Settings> = {}): Settings {
+  return { ...DEFAULT_SETTINGS, ...partial };
+}

@@ -1,0 +1,82 @@
+/**
+ * Splits one line body (comment already removed) into chunks: runs of characters that are
+ * not blanks or separating commas. A comma between two digits stays inside its chunk (it is a
+ * decimal comma, reported later). Linear in the length of the line; no regular expressions.
+ */
+import type { Span } from './tree';
+
+export interface Chunk {
+  readonly text: string;
+  readonly span: Span;
+  /** A comma separated this chunk from the previous one. */
+  readonly afterComma: boolean;
+}
+
+export function isBlank(code: number): boolean {
+  return (
+    code === 0x20 || code === 0x09 || code === 0x0b || code === 0x0c || code === 0xa0 || code === 0xfeff ||
+    code === 0x1680 || (code >= 0x2000 && code <= 0x200a) || code === 0x202f || code === 0x205f || code === 0x3000
+  );
+}
+
+export function isDigit(code: number): boolean {
+  return code >= 0x30 && code <= 0x39;
+}
+
+export function chunkLine(body: string, from = 0): Chunk[] {
+  const chunks: Chunk[] = [];
+  let i = from;
+  let sawComma = false;
+  const n = body.length;
+  while (i < n) {
+    const c = body.charCodeAt(i);
+    if (isBlank(c)) { i++; continue; }
+    if (c === 0x2c /* , */) { sawComma = true; i++; continue; }
+    const start = i;
+    while (i < n) {
+      const d = body.charCodeAt(i);
+      if (isBlank(d)) break;
+      if (d === 0x2c) {
+        const prevDigit = i > start && isDigit(body.charCodeAt(i - 1));
+        const nextDigit = i + 1 < n && isDigit(body.charCodeAt(i + 1));
+        if (!(prevDigit && nextDigit)) break;
+      }
+      i++;
+    }
+    chunks.push({ text: body.slice(start, i), span: { start, end: i }, afterComma: sawComma });
+    sawComma = false;
+  }
+  return chunks;
+}
+
+export interface NumberParts {
+  /** Length of the numeric prefix (0 when the chunk does not start with a number). */
+  readonly length: number;
+  readonly value: number;
+  readonly decimalComma: boolean;
+}
+
+/**
+ * Reads a number at the start of `text`: optional sign, digits, optional decimal point or
+ * comma followed by digits (or a leading point: `.5`).
+ */
+export function leadingNumber(text: string, at = 0): NumberParts {
+  let i = at;
+  const n = text.length;
+  if (i < n && (text[i] === '-' || text[i] === '+' || text[i] === '−')) i++;
+  const intStart = i;
+  while (i < n && isDigit(text.charCodeAt(i))) i++;
+  const intDigits = i - intStart;
+  let decimalComma = false;
+  if (i < n && (text[i] === '.' || text[i] === ',') && i + 1 < n && isDigit(text.charCodeAt(i + 1))) {
+    decimalComma = text[i] === ',';
+    i++;
+    while (i < n && isDigit(text.charCodeAt(i))) i++;
+  } else if (intDigits === 0) {
+    return { length: 0, value: NaN, decimalComma: false };
+  }
+  const raw = text.slice(at, i).replace(',', '.').replace('−', '-');
+  const value = Number(raw);
+  if (!Number.isFinite(value)) return { length: 0, value: NaN, decimalComma: false };
+  return { length: i - at, value, decimalComma };
+}

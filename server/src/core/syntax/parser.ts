@@ -1,0 +1,417 @@
+/**
+ * The tolerant parser. It never throws: every line becomes a node, and what it cannot read
+ * becomes a syntax issue on that node. Lines are parsed independently, so a changed line can
+ * be re-parsed alone (see `parseLine`). Linear in the length of the text.
+ */
+import { fieldFor } from '../fields/registry';
+import { SECTION_NAMES, sectionByName, type SectionId } from '../fields/sections';
+import { isKnownUnitSpelling } from '../fields/units';
+import { closest } from '../util/suggest';
+import { chunkLine, isDigit, leadingNumber, type Chunk } from './lexer';
+import type {
+  ItemNode,
+  LineFix,
+  LineNode,
+  NoteTree,
+  NumberValue,
+  PairValue,
+  Span,
+  SyntaxIssue,
+  TimeSpec,
+  Token,
+  ValueNode,
+  WordValue,
+} from './tree';
+
+export interface LineSlice {
+  readonly text: string;
+  readonly offset: number;
+}
+
+/** Splits text into lines as LSP does (`\n`, `\r\n` and `\r` all end a line). */
+export function splitLines(text: string): { lines: LineSlice[]; eol: NoteTree['eol'] } {
+  const lines: LineSlice[] = [];
+  let eol: NoteTree['eol'] | null = null;
+  let start = 0;
+  const n = text.length;
+  for (let i = 0; i < n; i++) {
+    const c = text.charCodeAt(i);
+    if (c === 0x0a || c === 0x0d) {
+      lines.push({ text: text.slice(start, i), offset: start });
+      if (c === 0x0d && i + 1 < n && text.charCodeAt(i + 1) === 0x0a) {
+        eol ??= '\r\n';
+        i++;
+      } else {
+        eol ??= c === 0x0a ? '\n' : '\r';
+      }
+      start = i + 1;
+    }
+  }
+  lines.push({ text: text.slice(start), offset: start });
+  return { lines, eol: eol ?? '\n' };
+}
+
+export function parseNote(text: string): NoteTree {
+  const { lines, eol } = splitLines(text);
+  return { lines: lines.map((l, i) => parseLine(l.text, i, l.offset)), eol };
+}
+
+export function parseLine(text: string, line: number, offset = 0): LineNode {
+  try {
+    return parseLineUnsafe(text, line, offset);
+  } catch {
+    // Defensive: the parser is written not to throw, but a line must never take the note down.
+    return { kind: 'blank', line, offset, text, comment: null, issues: [{ check: 'stray-text', span: { start: 0, end: text.length }, message: 'This line could not be read.', fixes: [] }] };
+  }
+}
+
+function parseLineUnsafe(text: string, line: number, offset: number): LineNode {
+  const hash = text.indexOf('#');
+  const bodyEnd = hash >= 0 ? hash : text.length;
+  const comment: Token | null = hash >= 0 ? { text: text.slice(hash), span: { start: hash, end: text.length } } : null;
+  const body = text.slice(0, bodyEnd);
+  const chunks = chunkLine(body);
+  const base = { line, offset, text, comment };
+  const first = chunks[0];
+  if (!first) return { kind: 'blank', ...base, issues: [] };
+
+  if (first.text.startsWith('@')) return parseTimepoint(body, chunks, base);
+
+  const section = sectionByName(first.text);
+  const sectionToken: Token = { text: first.text, span: first.span };
+  if (!section) {
+    const restStart = chunks[1]?.span.start;
+    const rest: Token | null = restStart === undefined ? null : { text: body.slice(restStart).trimEnd(), span: { start: restStart, end: restStart + body.slice(restStart).trimEnd().length } };
+    return { kind: 'unknown', ...base, first: sectionToken, rest, issues: [unknownSectionIssue(first)] };
+  }
+  if (section.id === 'note') {
+    const proseStart = chunks[1]?.span.start;
+    const proseEnd = chunks[chunks.length - 1]?.span.end ?? first.span.end;
+    const prose: Token | null = proseStart === undefined ? null : { text: body.slice(proseStart, proseEnd), span: { start: proseStart, end: proseEnd } };
+    return { kind: 'section', ...base, section: section.id, sectionToken, items: [], prose, issues: [] };
+  }
+  const issues: SyntaxIssue[] = [];
+  const items = parseItems(section.id, chunks.slice(1), issues);
+  return { kind: 'section', ...base, section: section.id, sectionToken, items, prose: null, issues };
+}
+
+function unknownSectionIssue(first: Chunk): SyntaxIssue {
+  const word = first.text.toLowerCase();
+  const fixes: LineFix[] = closest(word, SECTION_NAMES).map((s) => ({
+    title: `Change to \`${s}\``,
+    edits: [{ span: first.span, newText: s }],
+  }));
+  // A key written without its section, e.g. `hr 118`: offer the section that owns the key.
+  const owners = new Set<SectionId>();
+  for (const id of ['vitals', 'abg', 'vbg', 'labs', 'vent', 'oxygen', 'patient', 'place'] as const) {
+    if (fieldFor(id, word)) owners.add(id);
+  }
+  for (const owner of owners) {
+    fixes.push({ title: `Start the line with \`${owner}\``, edits: [{ span: { start: first.span.start, end: first.span.start }, newText: `${owner} ` }] });
+  }
+  const hint = fixes.length > 0 ? ` Did you mean ${fixes.map((f) => f.title.replace(/^(Change to|Start the line with) /, '')).join(' or ')}?` : '';
+  return {
+    check: 'unknown-section',
+    span: first.span,
+    message: `\`${first.text}\` is not a section; a line starts with a section such as vitals, abg, oxygen, vent, labs or note.${hint}`,
+    fixes,
+  };
+}
+
+// ── timepoints ──────────────────────────────────────────────────────────
+
+function parseTimepoint(body: string, chunks: Chunk[], base: { line: number; offset: number; text: string; comment: Token | null }): LineNode {
+  const issues: SyntaxIssue[] = [];
+  const first = chunks[0]!;
+  const marker: Token = { text: '@', span: { start: first.span.start, end: first.span.start + 1 } };
+  // `@07:40` is read like `@ 07:40`.
+  const rest: Chunk[] = [];
+  if (first.text.length > 1) rest.push({ text: first.text.slice(1), span: { start: first.span.start + 1, end: first.span.end }, afterComma: false });
+  rest.push(...chunks.slice(1));
+
+  let time: TimeSpec | null = null;
+  let used = 0;
+  const c0 = rest[0];
+  if (!c0) {
+    issues.push({ check: 'bad-time', span: marker.span, message: 'A timepoint needs a time: `@ day 1 07:40`, `@ 07:40` or `@ +2h30`.', fixes: [] });
+  } else if (c0.text.toLowerCase() === 'day') {
+    const c1 = rest[1];
+    const dayNum = c1 ? leadingNumber(c1.text) : null;
+    if (!c1 || !dayNum || dayNum.length !== c1.text.length || !Number.isInteger(dayNum.value) || dayNum.value < 0 || c1.text.startsWith('-') || c1.text.startsWith('+')) {
+      issues.push({ check: 'bad-time', span: c1 ? c1.span : c0.span, message: 'After `day` write the day number, e.g. `@ day 2 08:00`.', fixes: [] });
+      used = c1 ? 2 : 1;
+    } else {
+      const c2 = rest[2];
+      const clock = c2 ? readClock(c2.text) : null;
+      if (c2 && clock !== null) {
+        time = { kind: 'clock', day: dayNum.value, minutes: clock, span: { start: c0.span.start, end: c2.span.end }, text: body.slice(c0.span.start, c2.span.end) };
+        used = 3;
+      } else {
+        if (c2 && looksLikeClock(c2.text)) {
+          issues.push({ check: 'bad-time', span: c2.span, message: `\`${c2.text}\` is not a time of day (00:00 to 23:59).`, fixes: [] });
+          used = 3;
+        } else used = 2;
+        time = { kind: 'day', day: dayNum.value, minutes: null, span: { start: c0.span.start, end: c1.span.end }, text: body.slice(c0.span.start, c1.span.end) };
+      }
+    }
+  } else if (c0.text.startsWith('+')) {
+    const minutes = readOffset(c0.text);
+    used = 1;
+    if (minutes === null) {
+      issues.push({ check: 'bad-time', span: c0.span, message: `\`${c0.text}\` is not an offset; write it like \`+2h30\`, \`+45m\` or \`+1d\`.`, fixes: [] });
+    } else {
+      time = { kind: 'offset', day: null, minutes, span: c0.span, text: c0.text };
+    }
+  } else {
+    const clock = readClock(c0.text);
+    used = 1;
+    if (clock !== null) {
+      time = { kind: 'clock', day: null, minutes: clock, span: c0.span, text: c0.text };
+    } else if (looksLikeDate(c0.text)) {
+      issues.push({ check: 'bad-time', span: c0.span, message: `\`${c0.text}\` looks like a calendar date; Pneumark notes use relative days instead (\`@ day 2 08:00\`), which keeps dates of care out of shared notes.`, fixes: [] });
+    } else if (looksLikeClock(c0.text)) {
+      issues.push({ check: 'bad-time', span: c0.span, message: `\`${c0.text}\` is not a time of day (00:00 to 23:59).`, fixes: [] });
+    } else {
+      issues.push({ check: 'bad-time', span: c0.span, message: `Expected a time after \`@\` (\`@ day 1 07:40\`, \`@ 07:40\` or \`@ +2h30\`), found \`${c0.text}\`.`, fixes: [] });
+      used = 0;
+    }
+  }
+  const labelChunks = rest.slice(used);
+  const l0 = labelChunks[0];
+  const lN = labelChunks[labelChunks.length - 1];
+  const label: Token | null = l0 && lN ? { text: body.slice(l0.span.start, lN.span.end), span: { start: l0.span.start, end: lN.span.end } } : null;
+  return { kind: 'timepoint', ...base, marker, time, label, issues };
+}
+
+function looksLikeClock(text: string): boolean {
+  return text.includes(':') && isDigit(text.charCodeAt(0));
+}
+
+function looksLikeDate(text: string): boolean {
+  let digits = 0;
+  let seps = 0;
+  for (let i = 0; i < text.length; i++) {
+    const c = text.charCodeAt(i);
+    if (isDigit(c)) digits++;
+    else if (c === 0x2d || c === 0x2f || c === 0x2e) seps++;
+    else return false;
+  }
+  return digits >= 4 && seps === 2;
+}
+
+/** `H:MM` or `HH:MM` (also `HHMM`h-free forms are not accepted) → minutes after midnight. */
+export function readClock(text: string): number | null {
+  const colon = text.indexOf(':');
+  if (colon < 1 || colon > 2 || text.length !== colon + 3) return null;
+  for (let i = 0; i < text.length; i++) if (i !== colon && !isDigit(text.charCodeAt(i))) return null;
+  const h = Number(text.slice(0, colon));
+  const m = Number(text.slice(colon + 1));
+  if (h > 23 || m > 59) return null;
+  return h * 60 + m;
+}
+
+/** `+2h30`, `+2h`, `+45m`, `+45min`, `+1d`, `+1d6h` → minutes; null when unreadable. */
+export function readOffset(text: string): number | null {
+  if (!text.startsWith('+') || text.length < 2) return null;
+  let i = 1;
+  let total = 0;
+  let lastUnit: 'd' | 'h' | 'm' | null = null;
+  while (i < text.length) {
+    const start = i;
+    while (i < text.length && isDigit(text.charCodeAt(i))) i++;
+    if (i === start) return null;
+    const n = Number(text.slice(start, i));
+    const rest = text.slice(i).toLowerCase();
+    if (rest.startsWith('min')) { total += n; i += 3; lastUnit = 'm'; }
+    else if (rest.startsWith('d')) { if (lastUnit) return null; total += n * 1440; i += 1; lastUnit = 'd'; }
+    else if (rest.startsWith('h')) { if (lastUnit === 'h' || lastUnit === 'm') return null; total += n * 60; i += 1; lastUnit = 'h'; }
+    else if (rest.startsWith('m')) { if (lastUnit === 'm') return null; total += n; i += 1; lastUnit = 'm'; }
+    else if (rest === '' && lastUnit === 'h') { total += n; lastUnit = 'm'; }
+    else return null;
+  }
+  return lastUnit === null ? null : total;
+}
+
+// ── items ───────────────────────────────────────────────────────────────
+
+interface ChunkValue {
+  readonly value: ValueNode | null;
+  /** A unit written glued to the number (`89%`, `38.4C`). */
+  readonly gluedUnit: Token | null;
+}
+
+function readNumberChunk(chunk: Chunk): ChunkValue {
+  const num = leadingNumber(chunk.text);
+  if (num.length === 0) return { value: null, gluedUnit: null };
+  const value: NumberValue = {
+    kind: 'number',
+    text: chunk.text.slice(0, num.length),
+    value: num.value,
+    span: { start: chunk.span.start, end: chunk.span.start + num.length },
+    decimalComma: num.decimalComma,
+  };
+  if (num.length === chunk.text.length) return { value, gluedUnit: null };
+  const suffix = chunk.text.slice(num.length);
+  if (suffix.includes('/') && isDigit(suffix.charCodeAt(1))) return { value: null, gluedUnit: null };
+  return { value, gluedUnit: { text: suffix, span: { start: value.span.end, end: chunk.span.end } } };
+}
+
+function readSlashGroup(chunk: Chunk): PairValue | null {
+  if (!chunk.text.includes('/')) return null;
+  const parts: NumberValue[] = [];
+  let pos = 0;
+  for (const part of chunk.text.split('/')) {
+    const num = leadingNumber(part);
+    if (part.length === 0 || num.length !== part.length) return null;
+    const start = chunk.span.start + pos;
+    parts.push({ kind: 'number', text: part, value: num.value, span: { start, end: start + part.length }, decimalComma: num.decimalComma });
+    pos += part.length + 1;
+  }
+  return { kind: 'pair', text: chunk.text, parts, span: chunk.span };
+}
+
+const SHORTHAND_KEYS = ['ph', 'pco2', 'po2', 'hco3'] as const;
+
+function isKey(section: SectionId, text: string): boolean {
+  return fieldFor(section, text) !== undefined;
+}
+
+function deviceWordAt(chunks: readonly Chunk[], i: number): { text: string; span: Span; used: number } | null {
+  const c = chunks[i];
+  if (!c) return null;
+  const device = fieldFor('oxygen', 'device');
+  if (!device?.words) return null;
+  const next = chunks[i + 1];
+  if (c.text.toLowerCase() === 'room' && next && !next.afterComma && next.text.toLowerCase() === 'air') {
+    return { text: `${c.text} ${next.text}`, span: { start: c.span.start, end: next.span.end }, used: 2 };
+  }
+  if (device.words[c.text.toLowerCase()] && !isKey('oxygen', c.text)) return { text: c.text, span: c.span, used: 1 };
+  return null;
+}
+
+function parseItems(section: SectionId, chunks: readonly Chunk[], issues: SyntaxIssue[]): ItemNode[] {
+  const items: ItemNode[] = [];
+  let i = 0;
+  const n = chunks.length;
+
+  /** Reads the unit after a number value at `i` (a glued unit, or the next chunk when it reads as one). */
+  const takeUnit = (glued: Token | null): Token | null => {
+    if (glued) return glued;
+    const next = chunks[i];
+    if (!next || next.afterComma) return null;
+    if (leadingNumber(next.text).length > 0) return null;
+    if (isKnownUnitSpelling(next.text)) { i++; return { text: next.text, span: next.span }; }
+    if (isKey(section, next.text)) return null;
+    const after = chunks[i + 1];
+    if (after && !after.afterComma && leadingNumber(after.text).length > 0) return null;
+    // Something unit-like we do not know: keep it as the unit so the unit check can name it.
+    if (next.text.length <= 12) { i++; return { text: next.text, span: next.span }; }
+    return null;
+  };
+
+  // Shorthand gas: abg 7.28/56/71/26 [kPa]
+  if ((section === 'abg' || section === 'vbg') && chunks[0]) {
+    const group = readSlashGroup(chunks[0]);
+    if (group) {
+      i = 1;
+      if (group.parts.length < 2 || group.parts.length > 4) {
+        issues.push({ check: 'bad-shorthand', span: group.span, message: `A shorthand gas has 2 to 4 numbers (pH/PCO2/PO2/HCO3); this one has ${group.parts.length}.`, fixes: [] });
+      } else {
+        const unit = takeUnit(null);
+        group.parts.forEach((part, k) => {
+          const keyName = SHORTHAND_KEYS[k]!;
+          const isPressure = keyName === 'pco2' || keyName === 'po2';
+          items.push({ key: null, keyName, implied: 'shorthand', value: part, unit: isPressure ? unit : null, span: part.span });
+        });
+      }
+    }
+  }
+
+  // Oxygen device first: oxygen cannula 4 L/min, oxygen room air
+  if (section === 'oxygen') {
+    const dev = deviceWordAt(chunks, 0);
+    if (dev) {
+      i = dev.used;
+      const value: WordValue = { kind: 'word', text: dev.text, span: dev.span };
+      items.push({ key: null, keyName: 'device', implied: 'device', value, unit: null, span: dev.span });
+      const next = chunks[i];
+      if (next && !next.afterComma) {
+        const num = readNumberChunk(next);
+        if (num.value && num.value.kind === 'number') {
+          i++;
+          const unit = takeUnit(num.gluedUnit);
+          const keyName = dev.text.toLowerCase() === 'cpap' ? 'level' : 'flow';
+          items.push({ key: null, keyName, implied: 'device-flow', value: num.value, unit, span: { start: num.value.span.start, end: (unit ?? num.value).span.end } });
+        }
+      }
+    }
+  }
+
+  while (i < n) {
+    const chunk = chunks[i]!;
+    const asNumber = readNumberChunk(chunk);
+    const asGroup = readSlashGroup(chunk);
+    if (asNumber.value || asGroup) {
+      issues.push({ check: 'stray-text', span: chunk.span, message: `\`${chunk.text}\` has no key; write it as \`key value\`, e.g. \`hr 118\`.`, fixes: [] });
+      i++;
+      continue;
+    }
+    // A key.
+    const key: Token = { text: chunk.text, span: chunk.span };
+    const keyName = chunk.text.toLowerCase();
+    const field = fieldFor(section, chunk.text);
+    i++;
+    const next = chunks[i];
+    let value: ValueNode | null = null;
+    let unit: Token | null = null;
+    if (next && !next.afterComma) {
+      if (field?.kind === 'word') {
+        if (!isKey(section, next.text) || (field.words?.[next.text.toLowerCase()] !== undefined)) {
+          if (field.id === 'device') {
+            const dev = deviceWordAt(chunks, i);
+            const used = dev?.used ?? 1;
+            const span = dev?.span ?? next.span;
+            value = { kind: 'word', text: dev?.text ?? next.text, span };
+            i += used;
+          } else {
+            value = { kind: 'word', text: next.text, span: next.span };
+            i++;
+          }
+        }
+      } else {
+        const group = readSlashGroup(next);
+        const num = group ? null : readNumberChunk(next);
+        if (group) {
+          value = group;
+          i++;
+          unit = takeUnit(null);
+        } else if (num?.value) {
+          value = num.value;
+          i++;
+          unit = takeUnit(num.gluedUnit);
+        }
+      }
+    }
+    if (!value) {
+      issues.push({ check: 'missing-value', span: key.span, message: `\`${key.text}\` has no value.`, fixes: [] });
+    }
+    const end = (unit ?? value ?? key).span.end;
+    items.push({ key, keyName, implied: null, value, unit, span: { start: key.span.start, end } });
+  }
+
+  // Decimal commas anywhere in the line's numbers.
+  for (const item of items) {
+    const numbers: NumberValue[] = item.value?.kind === 'number' ? [item.value] : item.value?.kind === 'pair' ? [...item.value.parts] : [];
+    for (const num of numbers) {
+      if (!num.decimalComma) continue;
+      const fixed = num.text.replace(',', '.');
+      issues.push({
+        check: 'decimal-comma',
+        span: num.span,
+        message: `\`${num.text}\` uses a decimal comma; Pneumark reads it as ${fixed}, but a comma also separates items, so write a decimal point.`,
+        fixes: [{ title: `Write \`${fixed}\``, edits: [{ span: num.span, newText: fixed }], preferred: true }],
+      });
+    }
+  }
+  return items;
+}

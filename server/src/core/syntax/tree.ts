@@ -1,0 +1,145 @@
+/**
+ * The syntax tree of a note. Every line of the text has exactly one node, so the tree is
+ * complete even when lines are broken. Ranges are line-relative character offsets (UTF-16)
+ * plus the node's line number; `toRange` turns a span into an editor range.
+ */
+import type { Fix, Range } from '../types';
+import type { SectionId } from '../fields/sections';
+
+/** A half-open span [start, end) of UTF-16 code units within one line. */
+export interface Span {
+  readonly start: number;
+  readonly end: number;
+}
+
+export interface Token {
+  readonly text: string;
+  readonly span: Span;
+}
+
+export interface NumberValue {
+  readonly kind: 'number';
+  readonly text: string;
+  /** The number as read; a decimal comma is read as a point. */
+  readonly value: number;
+  readonly span: Span;
+  readonly decimalComma: boolean;
+}
+
+export interface PairValue {
+  readonly kind: 'pair';
+  readonly text: string;
+  readonly parts: readonly NumberValue[];
+  readonly span: Span;
+}
+
+export interface WordValue {
+  readonly kind: 'word';
+  readonly text: string;
+  readonly span: Span;
+}
+
+export type ValueNode = NumberValue | PairValue | WordValue;
+
+/**
+ * One `key value [unit]` item. `key` is null when the key is implied by position
+ * (a shorthand gas part, a device's flow, the device word itself).
+ */
+export interface ItemNode {
+  readonly key: Token | null;
+  /** The key the item stands for, lower case (implied keys use the canonical key). */
+  readonly keyName: string;
+  readonly implied: 'shorthand' | 'device' | 'device-flow' | null;
+  readonly value: ValueNode | null;
+  readonly unit: Token | null;
+  readonly span: Span;
+}
+
+/** A problem the parser found, reported by the syntax checks under the check's alias. */
+export interface SyntaxIssue {
+  readonly check: SyntaxCheckAlias;
+  readonly span: Span;
+  readonly message: string;
+  readonly fixes: readonly LineFix[];
+}
+
+/** A fix confined to one line: spans are on the issue's own line. */
+export interface LineFix {
+  readonly title: string;
+  readonly edits: readonly { readonly span: Span; readonly newText: string }[];
+  readonly preferred?: boolean;
+}
+
+export type SyntaxCheckAlias =
+  | 'unknown-section'
+  | 'missing-value'
+  | 'decimal-comma'
+  | 'bad-time'
+  | 'stray-text'
+  | 'bad-shorthand';
+
+export interface TimeSpec {
+  readonly kind: 'clock' | 'offset' | 'day';
+  /** Day number (1-based) when written. */
+  readonly day: number | null;
+  /** Minutes after midnight for 'clock', or the offset in minutes for 'offset'. */
+  readonly minutes: number | null;
+  readonly span: Span;
+  readonly text: string;
+}
+
+interface LineBase {
+  readonly line: number;
+  /** Start offset of the line in the whole text (UTF-16), for incremental work. */
+  readonly offset: number;
+  readonly text: string;
+  readonly comment: Token | null;
+  readonly issues: readonly SyntaxIssue[];
+}
+
+export interface BlankLine extends LineBase {
+  readonly kind: 'blank';
+}
+
+export interface TimepointLine extends LineBase {
+  readonly kind: 'timepoint';
+  readonly marker: Token;
+  readonly time: TimeSpec | null;
+  readonly label: Token | null;
+}
+
+export interface SectionLine extends LineBase {
+  readonly kind: 'section';
+  readonly section: SectionId;
+  readonly sectionToken: Token;
+  readonly items: readonly ItemNode[];
+  /** Free prose (note lines). */
+  readonly prose: Token | null;
+}
+
+export interface UnknownLine extends LineBase {
+  readonly kind: 'unknown';
+  readonly first: Token;
+  /** The rest of the line after the first word, kept verbatim. */
+  readonly rest: Token | null;
+}
+
+export type LineNode = BlankLine | TimepointLine | SectionLine | UnknownLine;
+
+export interface NoteTree {
+  readonly lines: readonly LineNode[];
+  /** The line terminator used first in the text (for edits that add lines). */
+  readonly eol: '\n' | '\r\n' | '\r';
+}
+
+export function toRange(line: number, span: Span): Range {
+  return { start: { line, character: span.start }, end: { line, character: span.end } };
+}
+
+export function lineFixToFix(line: number, fix: LineFix): Fix {
+  return {
+    title: fix.title,
+    edits: fix.edits.map((e) => ({ range: toRange(line, e.span), newText: e.newText })),
+    ...(fix.preferred ? { preferred: true } : {}),
+  };
+}

@@ -1,0 +1,6 @@
+/** Number formatting shared by messages, fixes and output. Never prints NaN or Infinity. */
+export function formatNumber(value: number, decimals: number): string {
+  if (!Number.isFinite(value)) return '—';
+  const fixed = value.toFixed(Math.max(0, Math.min(6, decimals)));
+  return fixed === '-0' || /^-0\.0*$/.test(fixed) ? fixed.slice(1) : fixed;
+}
