@@ -37,7 +37,7 @@ export function renderCheckText(outcomes: readonly FileOutcome[], p: Paint, quie
   }
   const checked = outcomes.filter((o) => !o.problem).length;
   const unreadable = outcomes.length - checked;
-  lines.push(`${checked} note${checked === 1 ? '' : 's'} checked${unreadable ? `, ${unreadable} could not be read` : ''}: ${total.error} error${total.error === 1 ? '' : 's'}, ${total.warning} warning${total.warning === 1 ? '' : 's'}, ${total.information} note${total.information === 1 ? '' : 's'}.`);
+  lines.push(`${checked} note${checked === 1 ? '' : 's'} checked${unreadable ? `, ${unreadable} could not be read` : ''}: ${total.error} error${total.error === 1 ? '' : 's'}, ${total.warning} warning${total.warning === 1 ? '' : 's'}, ${total.information} info.`);
   return lines.join('\n');
 }
 

@@ -42,7 +42,7 @@ export function readItem(item: ItemNode, section: SectionId, line: number, ctx: 
         check: 'unknown-word',
         line,
         span: item.value.span,
-        message: `\`${text}\` is not a ${field.label.toLowerCase()} Pneumark knows; expected one of: ${known.join(', ')}.`,
+        message: `\`${text}\` is not a known value for ${field.label.toLowerCase()}; expected one of: ${known.join(', ')}.`,
         fixes: near.map((w) => ({ title: `Change to \`${field.words?.[w] ?? w}\``, edits: [{ span: item.value!.span, newText: field.words?.[w] ?? w }] })),
       });
       return { stated: { ...base, value: null, parts: null, word: null, unit: null, readUnit: null, unitImplied: false, unitDoubt: null, usable: false }, issues };

@@ -8,6 +8,7 @@
  * a `vent` line ends oxygen-line therapy and updates the ventilator settings it restates,
  * keeping the rest; measurements (vitals, gases, labs) never carry.
  */
+import { fieldById } from '../fields/registry';
 import { sectionById, type SectionId } from '../fields/sections';
 import type { Settings } from '../settings';
 import type { LineNode, NoteTree, SectionLine, TimepointLine } from '../syntax/tree';
@@ -154,13 +155,25 @@ function apply(section: SectionId, stated: readonly StatedValue[], tp: number, s
       });
     }
   }
-  const hold = (map: Map<string, Held>) => { for (const s of stated) map.set(s.fieldId, { stated: s, timepoint: tp }); };
+  const hold = (map: Map<string, Held>) => {
+    for (const s of stated) if (!fieldById(s.fieldId)?.reading) map.set(s.fieldId, { stated: s, timepoint: tp });
+  };
   switch (section) {
     case 'patient': hold(state.patient); break;
     case 'place': if (stated.length > 0) { state.place = new Map(); hold(state.place); } break;
     case 'units': { const g = stated.find((s) => s.fieldId === 'gas_unit'); if (g?.word) state.gasUnit = { stated: g, timepoint: tp }; break; }
     case 'oxygen': state.oxygen = new Map(); state.vent = new Map(); hold(state.oxygen); break;
-    case 'vent': state.oxygen = new Map(); hold(state.vent); break;
+    case 'vent': {
+      state.oxygen = new Map();
+      // A new mode starts a new set of settings; PEEP and FiO2 carry across it.
+      const mode = stated.find((s) => s.fieldId === 'mode');
+      const before = state.vent.get('mode')?.stated.word;
+      if (mode?.word && before && mode.word !== before) {
+        for (const id of [...state.vent.keys()]) if (id !== 'peep' && id !== 'fio2') state.vent.delete(id);
+      }
+      hold(state.vent);
+      break;
+    }
     default: break;
   }
 }
@@ -169,9 +182,9 @@ function freeze(b: Builder, state: CarryState, labels: readonly string[], settin
   const values = new Map<string, InputValue>();
   const put = (held: Held) => values.set(held.stated.fieldId, { stated: held.stated, origin: originOf(held, b.index, labels) });
   for (const map of [state.patient, state.place, state.oxygen, state.vent]) for (const held of map.values()) put(held);
-  // Measurements stated here (the last of a field wins).
+  // Measurements and device readings stated here (the last of a field wins).
   for (const s of b.stated) {
-    if (sectionById(s.section).kind === 'measure') values.set(s.fieldId, { stated: s, origin: { kind: 'here', line: s.line, span: s.item.span } });
+    if (sectionById(s.section).kind === 'measure' || fieldById(s.fieldId)?.reading) values.set(s.fieldId, { stated: s, origin: { kind: 'here', line: s.line, span: s.item.span } });
   }
   return { index: b.index, line: b.line, label: b.label, startLine: b.startLine, endLine: b.endLine, time: b.time, stated: b.stated, values, barometricMmhg: barometricInForce(state.place, settings) };
 }

@@ -4,7 +4,7 @@
  * be re-parsed alone (see `parseLine`). Linear in the length of the text.
  */
 import { fieldFor } from '../fields/registry';
-import { SECTION_NAMES, sectionByName, type SectionId } from '../fields/sections';
+import { SECTIONS, sectionByName, type SectionId } from '../fields/sections';
 import { isKnownUnitSpelling } from '../fields/units';
 import { closest } from '../util/suggest';
 import { chunkLine, isDigit, leadingNumber, type Chunk } from './lexer';
@@ -97,7 +97,7 @@ function parseLineUnsafe(text: string, line: number, offset: number): LineNode {
 
 function unknownSectionIssue(first: Chunk): SyntaxIssue {
   const word = first.text.toLowerCase();
-  const fixes: LineFix[] = closest(word, SECTION_NAMES).map((s) => ({
+  const fixes: LineFix[] = closest(word, SECTIONS.map((s) => s.id)).map((s) => ({
     title: `Change to \`${s}\``,
     edits: [{ span: first.span, newText: s }],
   }));

@@ -1,0 +1,600 @@
+/**
+ * Acid–base: Henderson–Hasselbalch, hydrogen ion, anion gap, expected compensation, and a
+ * classifier following the physiological (bicarbonate-centred) stepwise approach.
+ *
+ * Units: PaCO2 mmHg, HCO3 and electrolytes mmol/L, albumin g/dL, hydrogen ion nmol/L. Every
+ * function returns `null` (never NaN or ±Infinity, never throws) when an input is non-finite
+ * or outside the stated domain. pH must lie on the aqueous scale 0–14 to be accepted here;
+ * whether it is plausible for blood is the check layer's business.
+ */
+import { allFinite, finiteOrNull, inClosedRange } from './numeric';
+
+/** Citations for the formulas in this module (key → citation). */
+export const SOURCES = Object.freeze({
+  'henderson-hasselbalch':
+    'Henderson–Hasselbalch equation for the carbonic acid–bicarbonate buffer, pH = 6.1 + log10(HCO3 / (0.0307 × PaCO2)), with pK′ 6.1 and CO2 solubility 0.0307 mmol/L per mmHg in plasma at 37 °C: standard physiology (Hasselbalch KA. Biochem Z 1916;78:112–144, from memory).',
+  'kassirer-bleich-1965':
+    'Kassirer JP, Bleich HL. Rapid estimation of plasma carbon dioxide tension from pH and total carbon dioxide content. N Engl J Med 1965;272:1067–1068 (from memory).',
+  'winters-1967':
+    'Albert MS, Dell RB, Winters RW. Quantitative displacement of acid-base equilibrium in metabolic acidosis. Ann Intern Med 1967;66(2):312–322 (from memory).',
+  'berend-2014':
+    'Berend K, de Vries APJ, Gans ROB. Physiological approach to assessment of acid–base disturbances. N Engl J Med 2014;371(15):1434–1445.',
+  'narins-emmett-1980':
+    'Narins RG, Emmett M. Simple and mixed acid-base disorders: a practical approach. Medicine (Baltimore) 1980;59(3):161–187 (from memory).',
+  'adrogue-madias-2010':
+    'Adrogué HJ, Madias NE. Secondary responses to altered acid-base status: the rules of engagement. J Am Soc Nephrol 2010;21(6):920–923 (from memory).',
+  'figge-1998':
+    'Figge J, Jabor A, Kazda A, Fencl V. Anion gap and hypoalbuminemia. Crit Care Med 1998;26(11):1807–1810 (from memory).',
+  'rastegar-2007':
+    'Rastegar A. Use of the ΔAG/ΔHCO3− ratio in the diagnosis of mixed acid-base disorders. J Am Soc Nephrol 2007;18(9):2429–2431 (from memory).',
+  'anion-gap':
+    'Anion gap = Na − (Cl + HCO3), optionally + K; normal about 12 mmol/L (8–12 with modern analysers): common practice, no source.',
+  'acid-base-reference-intervals':
+    'Arterial reference intervals pH 7.35–7.45, PaCO2 35–45 mmHg, HCO3 22–26 mmol/L: common practice, no source.',
+  'pneumark-consistency-tolerance':
+    'Tolerance for reported vs calculated HCO3 (HCO3_CONSISTENCY_TOLERANCE): Pneumark’s own choice, no source; reasoning given beside the constant.',
+} as const);
+
+/** A closed numeric interval. */
+export interface NumericRange {
+  readonly low: number;
+  readonly high: number;
+}
+
+/** A closed numeric interval with the formula's central value. */
+export interface RangeWithCentre extends NumericRange {
+  readonly centre: number;
+}
+
+/** Reference intervals. Source: `acid-base-reference-intervals`. */
+export const PH_NORMAL: NumericRange = Object.freeze({ low: 7.35, high: 7.45 });
+export const PACO2_NORMAL_MMHG: NumericRange = Object.freeze({ low: 35, high: 45 });
+export const HCO3_NORMAL_MMOL_L: NumericRange = Object.freeze({ low: 22, high: 26 });
+/** Centre values used as the baseline of compensation rules. Source: `berend-2014`. */
+export const PH_CENTRE = 7.4;
+export const PACO2_CENTRE_MMHG = 40;
+export const HCO3_CENTRE_MMOL_L = 24;
+
+/** pK′ of the carbonic acid–bicarbonate system in plasma at 37 °C. Source: `henderson-hasselbalch`. */
+export const HH_PK = 6.1;
+/** Solubility of CO2 in plasma at 37 °C, mmol/L per mmHg. Source: `henderson-hasselbalch`. */
+export const CO2_SOLUBILITY_MMOL_PER_L_PER_MMHG = 0.0307;
+
+/** Half-width (mmHg) of Winters' expected PaCO2 band. Source: `winters-1967`. */
+export const WINTERS_TOLERANCE_MMHG = 2;
+/** Half-width (mmHg) of the expected PaCO2 band in metabolic alkalosis. Source: `berend-2014`. */
+export const METABOLIC_ALKALOSIS_TOLERANCE_MMHG = 2;
+
+/**
+ * Change in HCO3 (mmol/L) per 10 mmHg change in PaCO2 from 40, as [smallest, largest] published
+ * coefficient; the expected range spans them. Sources: `narins-emmett-1980`, `adrogue-madias-2010`.
+ */
+export const RESPIRATORY_HCO3_COEFFICIENTS_PER_10_MMHG = Object.freeze({
+  acuteAcidosis: Object.freeze([1, 1] as const),
+  chronicAcidosis: Object.freeze([3.5, 5] as const),
+  acuteAlkalosis: Object.freeze([2, 2] as const),
+  chronicAlkalosis: Object.freeze([4, 5] as const),
+});
+
+/**
+ * Tolerance (± mmol/L) added on both sides of the expected HCO3 range of a respiratory disorder,
+ * acute and chronic alike. Pneumark's choice: ±2 mmol/L is the half-width of the 22–26 mmol/L
+ * reference interval, i.e. the uncertainty of the patient's unknown baseline HCO3, and mirrors
+ * the ±2 band of Winters' formula. Without it a single coefficient (e.g. acute +1 per 10 mmHg)
+ * would give a zero-width range.
+ */
+export const RESPIRATORY_RESPONSE_TOLERANCE_MMOL_L = 2;
+
+/**
+ * Tolerance for the internal consistency of a gas: reported HCO3 and the HCO3 calculated from
+ * the reported pH and PaCO2 by Henderson–Hasselbalch are judged inconsistent when they differ by
+ * more than max(2 mmol/L, 10 % of the calculated value). Pneumark's choice, reasoned as follows:
+ * rounding pH to 0.01 shifts HCO3 by up to ~1.2 %; rounding PaCO2 to 1 mmHg or 0.1 kPa by up to
+ * ~2–3 % at low PaCO2; analysers differ in pK′ and solubility (6.09–6.10, 0.0301–0.0307) by
+ * ~2–3 %; and a chemistry "total CO2" exceeds bicarbonate by the dissolved CO2 (~1.2 mmol/L).
+ * Together these reach ~8 %, so 10 % leaves no false alarm on honest results while still
+ * catching transcription errors (swapped or dropped digits, a venous value beside an arterial
+ * gas). The 2 mmol/L floor covers the dissolved-CO2 offset and integer rounding when HCO3 is low.
+ * 10 % in HCO3 is about 0.04 pH units. Source: `pneumark-consistency-tolerance`.
+ */
+export const HCO3_CONSISTENCY_TOLERANCE = Object.freeze({ absoluteMmolL: 2, relative: 0.1 });
+
+/** Normal anion gap (mmol/L) used as the baseline of the delta ratio. Source: `anion-gap`. */
+export const NORMAL_ANION_GAP_MMOL_L = 12;
+/** Anion gap (mmol/L, without K) above which the gap counts as high. Source: `anion-gap`. */
+export const ANION_GAP_UPPER_NORMAL_MMOL_L = 12;
+/** Normal albumin (g/dL) for the albumin correction (Figge used 4.4 g/dL). Source: `figge-1998`. */
+export const NORMAL_ALBUMIN_G_DL = 4.0;
+/** Anion gap change (mmol/L) per g/dL of albumin. Source: `figge-1998`. */
+export const ANION_GAP_PER_G_DL_ALBUMIN = 2.5;
+
+/** Reading of a delta ratio. Source: `rastegar-2007`. */
+export type DeltaRatioBand =
+  /** < 0.4: the fall in HCO3 is mostly a normal-gap (hyperchloraemic) acidosis. */
+  | 'normal-gap-acidosis'
+  /** 0.4 to < 0.8: high-gap and normal-gap acidosis together. */
+  | 'mixed-high-and-normal-gap-acidosis'
+  /** 0.8 to 2: an uncomplicated high-gap acidosis. */
+  | 'high-gap-acidosis'
+  /** > 2: HCO3 higher than the gap explains: added metabolic alkalosis, or a pre-existing compensated respiratory acidosis. */
+  | 'high-gap-acidosis-with-alkalosis';
+
+export type AcidBaseDisorder = 'metabolic-acidosis' | 'metabolic-alkalosis' | 'respiratory-acidosis' | 'respiratory-alkalosis';
+
+/**
+ * The primary finding: a single disorder; 'mixed-acidosis' (metabolic and respiratory acidosis
+ * both beyond their reference intervals); 'mixed-alkalosis' (likewise); 'normal' (all three in
+ * their reference intervals; hidden disorders may still show in `additional` via the anion gap);
+ * 'undetermined' (the pH is outside its interval but neither PaCO2 nor HCO3 moves that way: see
+ * `consistency`).
+ */
+export type PrimaryAcidBaseFinding = AcidBaseDisorder | 'mixed-acidosis' | 'mixed-alkalosis' | 'normal' | 'undetermined';
+
+export type PhStatus = 'acidaemia' | 'alkalaemia' | 'normal';
+
+/** Whether the secondary response matches the expected range for the primary disorder. */
+export type CompensationStatus = 'appropriate' | 'insufficient' | 'excessive' | 'not-applicable';
+
+/**
+ * Timing of a respiratory disorder judged from the HCO3 response: in the acute range only, in
+ * the chronic range only, between the two ('intermediate': evolving, or acute on chronic), or in
+ * both ranges at once ('acute-or-chronic': small changes cannot tell).
+ */
+export type RespiratoryChronicity = 'acute' | 'chronic' | 'intermediate' | 'acute-or-chronic';
+
+export type MetabolicAcidosisKind = 'high-anion-gap' | 'normal-anion-gap' | 'mixed-anion-gap';
+
+export type RespiratoryChronicityInput = 'acute' | 'chronic';
+
+/** Expected secondary response: PaCO2 for a metabolic primary, HCO3 (acute and chronic) for a respiratory one. */
+export type ExpectedCompensation =
+  | {
+      readonly kind: 'respiratory-response';
+      readonly quantity: 'paco2-mmhg';
+      readonly observed: number;
+      readonly range: RangeWithCentre;
+    }
+  | {
+      readonly kind: 'metabolic-response';
+      readonly quantity: 'hco3-mmol-l';
+      readonly observed: number;
+      readonly acute: NumericRange;
+      readonly chronic: NumericRange;
+    };
+
+export interface AcidBaseConsistency {
+  /** HCO3 (mmol/L) calculated from the reported pH and PaCO2 by Henderson–Hasselbalch. */
+  readonly calculatedHco3MmolL: number;
+  /** Reported minus calculated HCO3 (mmol/L). */
+  readonly differenceMmolL: number;
+  /** Allowed |difference| (mmol/L): max(2, 10 % of calculated). */
+  readonly toleranceMmolL: number;
+  readonly consistent: boolean;
+}
+
+export interface AnionGapFinding {
+  readonly valueMmolL: number;
+  readonly high: boolean;
+  /** (AG − 12) / (24 − HCO3); `null` when HCO3 is not below 24. */
+  readonly deltaRatio: number | null;
+  readonly deltaRatioBand: DeltaRatioBand | null;
+  /** Kind of metabolic acidosis, when one is identified. */
+  readonly metabolicAcidosisKind: MetabolicAcidosisKind | null;
+}
+
+export interface AcidBaseInput {
+  readonly ph: number;
+  readonly paco2Mmhg: number;
+  readonly hco3MmolL: number;
+  /** Anion gap (mmol/L, without K; albumin-corrected if the caller wishes). Optional. */
+  readonly anionGapMmolL?: number | undefined;
+}
+
+export interface AcidBaseClassification {
+  readonly phStatus: PhStatus;
+  readonly primary: PrimaryAcidBaseFinding;
+  readonly compensation: CompensationStatus;
+  /** pH within its reference interval while a single primary disorder is appropriately compensated. */
+  readonly fullyCompensated: boolean;
+  readonly expected: ExpectedCompensation | null;
+  /** Timing of a respiratory primary; `null` otherwise or when a second disorder blurs it. */
+  readonly respiratoryChronicity: RespiratoryChronicity | null;
+  /** Suspected further disorders beyond the primary finding. */
+  readonly additional: readonly AcidBaseDisorder[];
+  /** Every disorder identified, the primary's first. */
+  readonly disorders: readonly AcidBaseDisorder[];
+  readonly anionGap: AnionGapFinding | null;
+  readonly consistency: AcidBaseConsistency;
+}
+
+function validPh(ph: number): boolean {
+  return inClosedRange(ph, 0, 14);
+}
+
+/**
+ * HCO3 (mmol/L) from pH and PaCO2 by Henderson–Hasselbalch: HCO3 = 0.0307 × PaCO2 × 10^(pH − 6.1).
+ * `null` unless 0 ≤ pH ≤ 14 and PaCO2 > 0. Source: `henderson-hasselbalch`.
+ */
+export function hco3FromPhPco2(ph: number, paco2Mmhg: number): number | null {
+  if (!validPh(ph) || !allFinite(paco2Mmhg) || paco2Mmhg <= 0) return null;
+  return finiteOrNull(CO2_SOLUBILITY_MMOL_PER_L_PER_MMHG * paco2Mmhg * Math.pow(10, ph - HH_PK));
+}
+
+/**
+ * pH from HCO3 and PaCO2 by Henderson–Hasselbalch: pH = 6.1 + log10(HCO3 / (0.0307 × PaCO2)).
+ * `null` unless HCO3 > 0 and PaCO2 > 0. Source: `henderson-hasselbalch`.
+ */
+export function phFromHco3Paco2(hco3MmolL: number, paco2Mmhg: number): number | null {
+  if (!allFinite(hco3MmolL, paco2Mmhg) || hco3MmolL <= 0 || paco2Mmhg <= 0) return null;
+  return finiteOrNull(HH_PK + Math.log10(hco3MmolL / (CO2_SOLUBILITY_MMOL_PER_L_PER_MMHG * paco2Mmhg)));
+}
+
+/**
+ * Hydrogen ion concentration (nmol/L) from pH: [H+] = 10^(9 − pH) (pH 7.40 → 39.8).
+ * `null` unless 0 ≤ pH ≤ 14. Source: `kassirer-bleich-1965`.
+ */
+export function hydrogenIonNmol(ph: number): number | null {
+  if (!validPh(ph)) return null;
+  return finiteOrNull(Math.pow(10, 9 - ph));
+}
+
+/**
+ * Hydrogen ion concentration (nmol/L) by the Kassirer–Bleich form of Henderson's equation:
+ * [H+] = 24 × PaCO2 / HCO3. `null` unless PaCO2 > 0 and HCO3 > 0. Source: `kassirer-bleich-1965`.
+ */
+export function kassirerBleichHydrogen(paco2Mmhg: number, hco3MmolL: number): number | null {
+  if (!allFinite(paco2Mmhg, hco3MmolL) || paco2Mmhg <= 0 || hco3MmolL <= 0) return null;
+  return finiteOrNull((24 * paco2Mmhg) / hco3MmolL);
+}
+
+/**
+ * Anion gap (mmol/L): Na − (Cl + HCO3), plus K when given. May be negative (a lab error or an
+ * unmeasured cation). `null` unless every given concentration is ≥ 0. Source: `anion-gap`.
+ */
+export function anionGap(naMmolL: number, clMmolL: number, hco3MmolL: number, kMmolL?: number): number | null {
+  if (!allFinite(naMmolL, clMmolL, hco3MmolL) || naMmolL < 0 || clMmolL < 0 || hco3MmolL < 0) return null;
+  let potassium = 0;
+  if (kMmolL !== undefined) {
+    if (!allFinite(kMmolL) || kMmolL < 0) return null;
+    potassium = kMmolL;
+  }
+  return finiteOrNull(naMmolL + potassium - clMmolL - hco3MmolL);
+}
+
+/**
+ * Albumin-corrected anion gap (mmol/L): AG + 2.5 × (normal albumin − albumin), albumin in g/dL,
+ * normal 4.0 g/dL by default (Figge used 4.4). `null` unless albumin ≥ 0 and normal albumin > 0.
+ * Source: `figge-1998`.
+ */
+export function anionGapAlbuminCorrected(
+  anionGapMmolL: number,
+  albuminGdl: number,
+  normalAlbuminGdl: number = NORMAL_ALBUMIN_G_DL,
+): number | null {
+  if (!allFinite(anionGapMmolL, albuminGdl, normalAlbuminGdl) || albuminGdl < 0 || normalAlbuminGdl <= 0) return null;
+  return finiteOrNull(anionGapMmolL + ANION_GAP_PER_G_DL_ALBUMIN * (normalAlbuminGdl - albuminGdl));
+}
+
+/**
+ * Delta ratio (dimensionless): (AG − normal AG) / (normal HCO3 − HCO3), defaults 12 and 24.
+ * Defined only while HCO3 is below its normal value: `null` when the denominator is ≤ 0, and
+ * unless HCO3 ≥ 0. Source: `rastegar-2007`.
+ */
+export function deltaRatio(
+  anionGapMmolL: number,
+  hco3MmolL: number,
+  normalAnionGapMmolL: number = NORMAL_ANION_GAP_MMOL_L,
+  normalHco3MmolL: number = HCO3_CENTRE_MMOL_L,
+): number | null {
+  if (!allFinite(anionGapMmolL, hco3MmolL, normalAnionGapMmolL, normalHco3MmolL) || hco3MmolL < 0) return null;
+  const fallInHco3 = normalHco3MmolL - hco3MmolL;
+  if (fallInHco3 <= 0) return null;
+  return finiteOrNull((anionGapMmolL - normalAnionGapMmolL) / fallInHco3);
+}
+
+/**
+ * Reading of a delta ratio: < 0.4 normal-gap acidosis; 0.4 to < 0.8 high- and normal-gap
+ * together; 0.8–2 high-gap acidosis; > 2 high-gap acidosis with metabolic alkalosis (or a
+ * pre-existing compensated respiratory acidosis). `null` for a non-finite ratio.
+ * Source: `rastegar-2007`.
+ */
+export function deltaRatioBand(ratio: number): DeltaRatioBand | null {
+  if (!allFinite(ratio)) return null;
+  if (ratio < 0.4) return 'normal-gap-acidosis';
+  if (ratio < 0.8) return 'mixed-high-and-normal-gap-acidosis';
+  if (ratio <= 2) return 'high-gap-acidosis';
+  return 'high-gap-acidosis-with-alkalosis';
+}
+
+/**
+ * Expected PaCO2 (mmHg) in metabolic acidosis, Winters' formula: 1.5 × HCO3 + 8 ± 2.
+ * `null` unless HCO3 > 0. Source: `winters-1967`.
+ */
+export function expectedPaco2MetabolicAcidosis(hco3MmolL: number): RangeWithCentre | null {
+  if (!allFinite(hco3MmolL) || hco3MmolL <= 0) return null;
+  const centre = 1.5 * hco3MmolL + 8;
+  return rangeAround(centre, WINTERS_TOLERANCE_MMHG);
+}
+
+/**
+ * Expected PaCO2 (mmHg) in metabolic alkalosis: 40 + 0.7 × (HCO3 − 24) ± 2 (published variants
+ * differ by up to 5 mmHg). `null` unless HCO3 > 0. Source: `berend-2014`.
+ */
+export function expectedPaco2MetabolicAlkalosis(hco3MmolL: number): RangeWithCentre | null {
+  if (!allFinite(hco3MmolL) || hco3MmolL <= 0) return null;
+  const centre = PACO2_CENTRE_MMHG + 0.7 * (hco3MmolL - HCO3_CENTRE_MMOL_L);
+  return rangeAround(centre, METABOLIC_ALKALOSIS_TOLERANCE_MMHG);
+}
+
+/**
+ * Expected HCO3 (mmol/L) in a respiratory disorder: 24 + k × (PaCO2 − 40) / 10 over the span of
+ * published coefficients k (acute acidosis +1; chronic acidosis +3.5 to +5; acute alkalosis −2;
+ * chronic alkalosis −4 to −5 per 10 mmHg), widened by ±2 mmol/L on both sides
+ * (RESPIRATORY_RESPONSE_TOLERANCE_MMOL_L). Acidosis coefficients apply at PaCO2 ≥ 40, alkalosis
+ * ones below. `null` unless PaCO2 > 0 and the chronicity is known.
+ * Sources: `narins-emmett-1980`, `adrogue-madias-2010`.
+ */
+export function expectedHco3Respiratory(paco2Mmhg: number, chronicity: RespiratoryChronicityInput): NumericRange | null {
+  if (!allFinite(paco2Mmhg) || paco2Mmhg <= 0) return null;
+  if (chronicity !== 'acute' && chronicity !== 'chronic') return null;
+  const tens = (paco2Mmhg - PACO2_CENTRE_MMHG) / 10;
+  const c = RESPIRATORY_HCO3_COEFFICIENTS_PER_10_MMHG;
+  const [kSmall, kLarge] =
+    tens >= 0
+      ? chronicity === 'acute'
+        ? c.acuteAcidosis
+        : c.chronicAcidosis
+      : chronicity === 'acute'
+        ? c.acuteAlkalosis
+        : c.chronicAlkalosis;
+  // Above 40 mmHg HCO3 rises by k per 10 mmHg; below 40 it falls by k per 10 mmHg (tens < 0).
+  const sign = tens >= 0 ? 1 : -1;
+  const a = HCO3_CENTRE_MMOL_L + sign * kSmall * Math.abs(tens);
+  const b = HCO3_CENTRE_MMOL_L + sign * kLarge * Math.abs(tens);
+  const low = finiteOrNull(Math.min(a, b) - RESPIRATORY_RESPONSE_TOLERANCE_MMOL_L);
+  const high = finiteOrNull(Math.max(a, b) + RESPIRATORY_RESPONSE_TOLERANCE_MMOL_L);
+  if (low === null || high === null) return null;
+  return { low, high };
+}
+
+/**
+ * Internal consistency of a reported gas: reported HCO3 against HCO3 calculated from the
+ * reported pH and PaCO2 (Henderson–Hasselbalch), within max(2 mmol/L, 10 %) —
+ * see HCO3_CONSISTENCY_TOLERANCE. `null` unless 0 ≤ pH ≤ 14, PaCO2 > 0 and HCO3 > 0.
+ * Sources: `henderson-hasselbalch`, `pneumark-consistency-tolerance`.
+ */
+export function acidBaseConsistency(ph: number, paco2Mmhg: number, hco3MmolL: number): AcidBaseConsistency | null {
+  if (!allFinite(hco3MmolL) || hco3MmolL <= 0) return null;
+  const calculated = hco3FromPhPco2(ph, paco2Mmhg);
+  if (calculated === null) return null;
+  const difference = finiteOrNull(hco3MmolL - calculated);
+  const tolerance = finiteOrNull(
+    Math.max(HCO3_CONSISTENCY_TOLERANCE.absoluteMmolL, HCO3_CONSISTENCY_TOLERANCE.relative * calculated),
+  );
+  if (difference === null || tolerance === null) return null;
+  return {
+    calculatedHco3MmolL: calculated,
+    differenceMmolL: difference,
+    toleranceMmolL: tolerance,
+    consistent: Math.abs(difference) <= tolerance,
+  };
+}
+
+type Direction = 'acid' | 'alkali';
+
+function metabolicDisorder(direction: Direction): AcidBaseDisorder {
+  return direction === 'acid' ? 'metabolic-acidosis' : 'metabolic-alkalosis';
+}
+
+function respiratoryDisorder(direction: Direction): AcidBaseDisorder {
+  return direction === 'acid' ? 'respiratory-acidosis' : 'respiratory-alkalosis';
+}
+
+function rangeAround(centre: number, halfWidth: number): RangeWithCentre | null {
+  const low = finiteOrNull(centre - halfWidth);
+  const high = finiteOrNull(centre + halfWidth);
+  const mid = finiteOrNull(centre);
+  if (low === null || high === null || mid === null) return null;
+  return { low, centre: mid, high };
+}
+
+function within(value: number, range: NumericRange): boolean {
+  return value >= range.low && value <= range.high;
+}
+
+/**
+ * Which finding is primary. Outside the pH interval: the component moving the pH's way (both →
+ * mixed); if neither is beyond its interval, the one with the larger shift that way (log scale).
+ * Inside the pH interval: the only abnormal component; for a compensating pair, the one on the
+ * pH's side of 7.40 (at exactly 7.40, the larger relative shift).
+ */
+function primaryFinding(ph: number, paco2: number, hco3: number): PrimaryAcidBaseFinding {
+  const metabolic: Direction | null =
+    hco3 < HCO3_NORMAL_MMOL_L.low ? 'acid' : hco3 > HCO3_NORMAL_MMOL_L.high ? 'alkali' : null;
+  const respiratory: Direction | null =
+    paco2 > PACO2_NORMAL_MMHG.high ? 'acid' : paco2 < PACO2_NORMAL_MMHG.low ? 'alkali' : null;
+  const phDirection: Direction | null = ph < PH_NORMAL.low ? 'acid' : ph > PH_NORMAL.high ? 'alkali' : null;
+
+  if (metabolic !== null && metabolic === respiratory) {
+    return metabolic === 'acid' ? 'mixed-acidosis' : 'mixed-alkalosis';
+  }
+  // Positive shift = towards alkali, on a log scale so that the two components compare.
+  const metabolicShift = Math.log10(hco3 / HCO3_CENTRE_MMOL_L);
+  const respiratoryShift = Math.log10(PACO2_CENTRE_MMHG / paco2);
+
+  if (phDirection !== null) {
+    if (metabolic === phDirection) return metabolicDisorder(phDirection);
+    if (respiratory === phDirection) return respiratoryDisorder(phDirection);
+    const sign = phDirection === 'alkali' ? 1 : -1;
+    const m = sign * metabolicShift;
+    const r = sign * respiratoryShift;
+    if (m <= 0 && r <= 0) return 'undetermined';
+    return m >= r ? metabolicDisorder(phDirection) : respiratoryDisorder(phDirection);
+  }
+  if (metabolic === null && respiratory === null) return 'normal';
+  if (metabolic === null && respiratory !== null) return respiratoryDisorder(respiratory);
+  if (respiratory === null && metabolic !== null) return metabolicDisorder(metabolic);
+  // Both abnormal in opposite directions: a compensating pair.
+  let side: Direction;
+  if (ph < PH_CENTRE) side = 'acid';
+  else if (ph > PH_CENTRE) side = 'alkali';
+  else if (Math.abs(metabolicShift) >= Math.abs(respiratoryShift)) side = metabolicShift < 0 ? 'acid' : 'alkali';
+  else side = respiratoryShift < 0 ? 'acid' : 'alkali';
+  return metabolic === side ? metabolicDisorder(side) : respiratoryDisorder(side);
+}
+
+interface CompensationResult {
+  readonly compensation: CompensationStatus;
+  readonly expected: ExpectedCompensation | null;
+  readonly chronicity: RespiratoryChronicity | null;
+  readonly additional: readonly AcidBaseDisorder[];
+}
+
+const NOT_APPLICABLE: CompensationResult = Object.freeze({
+  compensation: 'not-applicable',
+  expected: null,
+  chronicity: null,
+  additional: Object.freeze([]),
+});
+
+function compensationFor(primary: PrimaryAcidBaseFinding, paco2: number, hco3: number): CompensationResult {
+  switch (primary) {
+    case 'metabolic-acidosis':
+    case 'metabolic-alkalosis': {
+      const range =
+        primary === 'metabolic-acidosis' ? expectedPaco2MetabolicAcidosis(hco3) : expectedPaco2MetabolicAlkalosis(hco3);
+      if (range === null) return NOT_APPLICABLE;
+      const expected: ExpectedCompensation = {
+        kind: 'respiratory-response',
+        quantity: 'paco2-mmhg',
+        observed: paco2,
+        range,
+      };
+      // The response lowers PaCO2 in metabolic acidosis and raises it in metabolic alkalosis.
+      const acidosis = primary === 'metabolic-acidosis';
+      if (paco2 > range.high) {
+        return { compensation: acidosis ? 'insufficient' : 'excessive', expected, chronicity: null, additional: ['respiratory-acidosis'] };
+      }
+      if (paco2 < range.low) {
+        return { compensation: acidosis ? 'excessive' : 'insufficient', expected, chronicity: null, additional: ['respiratory-alkalosis'] };
+      }
+      return { compensation: 'appropriate', expected, chronicity: null, additional: [] };
+    }
+    case 'respiratory-acidosis':
+    case 'respiratory-alkalosis': {
+      const acute = expectedHco3Respiratory(paco2, 'acute');
+      const chronic = expectedHco3Respiratory(paco2, 'chronic');
+      if (acute === null || chronic === null) return NOT_APPLICABLE;
+      const expected: ExpectedCompensation = {
+        kind: 'metabolic-response',
+        quantity: 'hco3-mmol-l',
+        observed: hco3,
+        acute,
+        chronic,
+      };
+      const inAcute = within(hco3, acute);
+      const inChronic = within(hco3, chronic);
+      if (inAcute && inChronic) return { compensation: 'appropriate', expected, chronicity: 'acute-or-chronic', additional: [] };
+      if (inAcute) return { compensation: 'appropriate', expected, chronicity: 'acute', additional: [] };
+      if (inChronic) return { compensation: 'appropriate', expected, chronicity: 'chronic', additional: [] };
+      // The response raises HCO3 in respiratory acidosis and lowers it in respiratory alkalosis.
+      const acidosis = primary === 'respiratory-acidosis';
+      if (hco3 > acute.high && hco3 > chronic.high) {
+        return { compensation: acidosis ? 'excessive' : 'insufficient', expected, chronicity: null, additional: ['metabolic-alkalosis'] };
+      }
+      if (hco3 < acute.low && hco3 < chronic.low) {
+        return { compensation: acidosis ? 'insufficient' : 'excessive', expected, chronicity: null, additional: ['metabolic-acidosis'] };
+      }
+      // Between the acute and the chronic range.
+      return { compensation: 'appropriate', expected, chronicity: 'intermediate', additional: [] };
+    }
+    default:
+      return NOT_APPLICABLE;
+  }
+}
+
+function primaryDisorders(primary: PrimaryAcidBaseFinding): AcidBaseDisorder[] {
+  switch (primary) {
+    case 'mixed-acidosis':
+      return ['metabolic-acidosis', 'respiratory-acidosis'];
+    case 'mixed-alkalosis':
+      return ['metabolic-alkalosis', 'respiratory-alkalosis'];
+    case 'normal':
+    case 'undetermined':
+      return [];
+    default:
+      return [primary];
+  }
+}
+
+/**
+ * Classifies an arterial gas by the physiological stepwise approach (`berend-2014`):
+ * 1. pH status against 7.35–7.45; PaCO2 against 35–45 mmHg; HCO3 against 22–26 mmol/L
+ *    (`acid-base-reference-intervals`).
+ * 2. Primary finding (see PrimaryAcidBaseFinding): the component moving pH its way; both →
+ *    mixed; with a normal pH and a compensating pair, the component on the pH's side of 7.40.
+ * 3. Compensation against the expected range: Winters' formula (`winters-1967`) for metabolic
+ *    acidosis; 40 + 0.7 × (HCO3 − 24) ± 2 for metabolic alkalosis (`berend-2014`); the span of
+ *    published coefficients ± 2 mmol/L for respiratory disorders, which also gives acute,
+ *    chronic or intermediate (`narins-emmett-1980`, `adrogue-madias-2010`). A response outside
+ *    the range suggests a second disorder.
+ * 4. With an anion gap: a gap above 12 mmol/L adds a high-gap metabolic acidosis if none is
+ *    identified yet; the delta ratio (`rastegar-2007`) refines it (< 0.8 also a normal-gap
+ *    acidosis; > 2, or a high gap with HCO3 ≥ 24, a metabolic alkalosis unless a respiratory
+ *    acidosis explains the high HCO3).
+ * 5. Internal consistency of reported HCO3 against Henderson–Hasselbalch (HCO3_CONSISTENCY_TOLERANCE).
+ * The result is still given for an inconsistent gas; callers should show `consistency` first.
+ * `null` unless 0 ≤ pH ≤ 14, PaCO2 > 0, HCO3 > 0, and a given anion gap is finite.
+ */
+export function classifyAcidBase(input: AcidBaseInput): AcidBaseClassification | null {
+  const { ph, paco2Mmhg: paco2, hco3MmolL: hco3, anionGapMmolL: gap } = input;
+  if (!validPh(ph) || !allFinite(paco2, hco3) || paco2 <= 0 || hco3 <= 0) return null;
+  if (gap !== undefined && !allFinite(gap)) return null;
+  const consistency = acidBaseConsistency(ph, paco2, hco3);
+  if (consistency === null) return null;
+
+  const phStatus: PhStatus = ph < PH_NORMAL.low ? 'acidaemia' : ph > PH_NORMAL.high ? 'alkalaemia' : 'normal';
+  const primary = primaryFinding(ph, paco2, hco3);
+  const { compensation, expected, chronicity, additional: fromCompensation } = compensationFor(primary, paco2, hco3);
+
+  const fromPrimary = primaryDisorders(primary);
+  const additional: AcidBaseDisorder[] = [...fromCompensation];
+  const identified = (d: AcidBaseDisorder): boolean => fromPrimary.includes(d) || additional.includes(d);
+
+  let anionGapFinding: AnionGapFinding | null = null;
+  if (gap !== undefined) {
+    const high = gap > ANION_GAP_UPPER_NORMAL_MMOL_L;
+    const ratio = deltaRatio(gap, hco3);
+    const band = ratio === null ? null : deltaRatioBand(ratio);
+    const acidosisBefore = identified('metabolic-acidosis');
+    let kind: MetabolicAcidosisKind | null = null;
+    if (high) {
+      kind = band === 'normal-gap-acidosis' || band === 'mixed-high-and-normal-gap-acidosis' ? 'mixed-anion-gap' : 'high-anion-gap';
+      if (!acidosisBefore) additional.push('metabolic-acidosis');
+      const hco3HigherThanGapExplains = ratio === null || band === 'high-gap-acidosis-with-alkalosis';
+      if (hco3HigherThanGapExplains && !identified('respiratory-acidosis') && !identified('metabolic-alkalosis')) {
+        additional.push('metabolic-alkalosis');
+      }
+    } else if (acidosisBefore) {
+      kind = 'normal-anion-gap';
+    }
+    anionGapFinding = { valueMmolL: gap, high, deltaRatio: ratio, deltaRatioBand: band, metabolicAcidosisKind: kind };
+  }
+
+  const disorders: AcidBaseDisorder[] = [...fromPrimary];
+  for (const d of additional) if (!disorders.includes(d)) disorders.push(d);
+  const singlePrimary = fromPrimary.length === 1;
+
+  return {
+    phStatus,
+    primary,
+    compensation,
+    fullyCompensated: phStatus === 'normal' && singlePrimary && compensation === 'appropriate',
+    expected,
+    respiratoryChronicity: chronicity,
+    additional,
+    disorders,
+    anionGap: anionGapFinding,
+    consistency,
+  };
+}

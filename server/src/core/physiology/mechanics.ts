@@ -1,0 +1,140 @@
+/**
+ * Ventilation and respiratory mechanics: minute ventilation, predicted body weight, driving
+ * pressure, compliance, resistance, mechanical power and ventilatory ratio.
+ *
+ * Units: volumes mL (minute ventilation out in L/min where the name says so), airway pressures
+ * cmH2O, flows L/min, PaCO2 mmHg, height cm, weight kg, rate per minute. Every function returns
+ * `null` (never NaN or ±Infinity, never throws) when an input is non-finite or outside the
+ * stated domain.
+ */
+import { allFinite, finiteOrNull } from './numeric';
+
+/** Citations for the formulas in this module (key → citation). */
+export const SOURCES = Object.freeze({
+  'ardsnet-2000':
+    'The Acute Respiratory Distress Syndrome Network. Ventilation with lower tidal volumes as compared with traditional tidal volumes for acute lung injury and the acute respiratory distress syndrome. N Engl J Med 2000;342(18):1301–1308 (predicted body weight: male 50 + 0.91 × (height cm − 152.4), female 45.5 + 0.91 × (height cm − 152.4)) (from memory).',
+  'amato-2015':
+    'Amato MBP, Meade MO, Slutsky AS, et al. Driving pressure and survival in the acute respiratory distress syndrome. N Engl J Med 2015;372(8):747–755 (from memory).',
+  'respiratory-mechanics':
+    'Static compliance VT / (Pplat − PEEP), dynamic compliance VT / (Ppeak − PEEP), resistance (Ppeak − Pplat) / flow in constant-flow volume control, minute ventilation VT × RR: standard respiratory mechanics; common practice, no single source.',
+  'gattinoni-2016':
+    'Gattinoni L, Tonetti T, Cressoni M, et al. Ventilator-related causes of lung injury: the mechanical power. Intensive Care Med 2016;42(10):1567–1575 (from memory).',
+  'sinha-2009':
+    'Sinha P, Fauvel NJ, Singh S, Soni N. Ventilatory ratio: a simple bedside measure of ventilation. Br J Anaesth 2009;102(5):692–697 (from memory).',
+  'sinha-2019':
+    'Sinha P, Calfee CS, Beitler JR, et al. Physiologic analysis and clinical performance of the ventilatory ratio in acute respiratory distress syndrome. Am J Respir Crit Care Med 2019;199(3):333–341 (from memory).',
+} as const);
+
+export type Sex = 'male' | 'female';
+
+/** Height (cm) at which the ARDSNet formulas give their base weights (60 inches). Source: `ardsnet-2000`. */
+export const PBW_REFERENCE_HEIGHT_CM = 152.4;
+/** Joules in one L·cmH2O (98.0665 Pa × 0.001 m³ = 0.0980665 J, rounded), the power equation's factor. Source: `gattinoni-2016`. */
+export const MECHANICAL_POWER_FACTOR = 0.098;
+/** Predicted minute ventilation, mL/min per kg PBW, in the ventilatory ratio. Source: `sinha-2009`. */
+export const VENTILATORY_RATIO_VE_ML_PER_KG = 100;
+/** Predicted PaCO2 (mmHg) in the ventilatory ratio. Source: `sinha-2009`. */
+export const VENTILATORY_RATIO_PACO2_MMHG = 37.5;
+
+/**
+ * Minute ventilation (L/min): tidal volume (mL) × rate (/min) ÷ 1000.
+ * `null` unless VT ≥ 0 and RR ≥ 0. Source: `respiratory-mechanics`.
+ */
+export function minuteVentilationLPerMin(vtMl: number, respiratoryRatePerMin: number): number | null {
+  if (!allFinite(vtMl, respiratoryRatePerMin) || vtMl < 0 || respiratoryRatePerMin < 0) return null;
+  return finiteOrNull((vtMl * respiratoryRatePerMin) / 1000);
+}
+
+/**
+ * Predicted body weight (kg), ARDS Network: male 50 + 0.91 × (height − 152.4), female
+ * 45.5 + 0.91 × (height − 152.4), height in cm. Meant for adults; below 152.4 cm it is an
+ * extrapolation and it is not valid for children. `null` unless 0 < height ≤ 300 cm, the sex is
+ * known, and the result is > 0. Source: `ardsnet-2000`.
+ */
+export function predictedBodyWeightKg(heightCm: number, sex: Sex): number | null {
+  if (!allFinite(heightCm) || heightCm <= 0 || heightCm > 300) return null;
+  let base: number;
+  if (sex === 'male') base = 50;
+  else if (sex === 'female') base = 45.5;
+  else return null;
+  const pbw = base + 0.91 * (heightCm - PBW_REFERENCE_HEIGHT_CM);
+  return pbw > 0 ? finiteOrNull(pbw) : null;
+}
+
+/**
+ * Tidal volume per kg predicted body weight (mL/kg): VT ÷ PBW.
+ * `null` unless VT ≥ 0 and PBW > 0. Source: `ardsnet-2000`.
+ */
+export function vtPerKgPbw(vtMl: number, pbwKg: number): number | null {
+  if (!allFinite(vtMl, pbwKg) || vtMl < 0 || pbwKg <= 0) return null;
+  return finiteOrNull(vtMl / pbwKg);
+}
+
+/**
+ * Driving pressure (cmH2O): Pplat − PEEP (equal to VT / respiratory-system compliance).
+ * `null` unless PEEP ≥ 0 and Pplat ≥ PEEP (a plateau below PEEP is impossible). Source: `amato-2015`.
+ */
+export function drivingPressure(pplatCmh2o: number, peepCmh2o: number): number | null {
+  if (!allFinite(pplatCmh2o, peepCmh2o) || peepCmh2o < 0 || pplatCmh2o < peepCmh2o) return null;
+  return finiteOrNull(pplatCmh2o - peepCmh2o);
+}
+
+/**
+ * Static compliance of the respiratory system (mL/cmH2O): VT / (Pplat − PEEP).
+ * `null` unless VT ≥ 0, PEEP ≥ 0 and Pplat > PEEP. Sources: `respiratory-mechanics`, `amato-2015`.
+ */
+export function complianceStatic(vtMl: number, pplatCmh2o: number, peepCmh2o: number): number | null {
+  if (!allFinite(vtMl, pplatCmh2o, peepCmh2o) || vtMl < 0 || peepCmh2o < 0 || pplatCmh2o <= peepCmh2o) return null;
+  return finiteOrNull(vtMl / (pplatCmh2o - peepCmh2o));
+}
+
+/**
+ * Dynamic compliance (mL/cmH2O): VT / (Ppeak − PEEP).
+ * `null` unless VT ≥ 0, PEEP ≥ 0 and Ppeak > PEEP. Source: `respiratory-mechanics`.
+ */
+export function complianceDynamic(vtMl: number, ppeakCmh2o: number, peepCmh2o: number): number | null {
+  if (!allFinite(vtMl, ppeakCmh2o, peepCmh2o) || vtMl < 0 || peepCmh2o < 0 || ppeakCmh2o <= peepCmh2o) return null;
+  return finiteOrNull(vtMl / (ppeakCmh2o - peepCmh2o));
+}
+
+/**
+ * Inspiratory airway resistance (cmH2O·s/L): (Ppeak − Pplat) / flow, flow converted from L/min
+ * to L/s. Valid for constant-flow volume control only. `null` unless Pplat ≥ 0, Ppeak ≥ Pplat and
+ * flow > 0. Source: `respiratory-mechanics`.
+ */
+export function airwayResistance(ppeakCmh2o: number, pplatCmh2o: number, flowLPerMin: number): number | null {
+  if (!allFinite(ppeakCmh2o, pplatCmh2o, flowLPerMin)) return null;
+  if (pplatCmh2o < 0 || ppeakCmh2o < pplatCmh2o || flowLPerMin <= 0) return null;
+  return finiteOrNull((ppeakCmh2o - pplatCmh2o) / (flowLPerMin / 60));
+}
+
+/**
+ * Mechanical power (J/min), simplified equation for volume control:
+ * 0.098 × RR × VT (L) × (Ppeak − ½ × (Pplat − PEEP)).
+ * `null` unless RR ≥ 0, VT ≥ 0, PEEP ≥ 0, Pplat ≥ PEEP and Ppeak ≥ Pplat. Source: `gattinoni-2016`.
+ */
+export function mechanicalPowerSimplified(
+  respiratoryRatePerMin: number,
+  vtMl: number,
+  ppeakCmh2o: number,
+  pplatCmh2o: number,
+  peepCmh2o: number,
+): number | null {
+  if (!allFinite(respiratoryRatePerMin, vtMl, ppeakCmh2o, pplatCmh2o, peepCmh2o)) return null;
+  if (respiratoryRatePerMin < 0 || vtMl < 0 || peepCmh2o < 0) return null;
+  if (pplatCmh2o < peepCmh2o || ppeakCmh2o < pplatCmh2o) return null;
+  const driving = pplatCmh2o - peepCmh2o;
+  return finiteOrNull(MECHANICAL_POWER_FACTOR * respiratoryRatePerMin * (vtMl / 1000) * (ppeakCmh2o - driving / 2));
+}
+
+/**
+ * Ventilatory ratio (dimensionless): (VE (mL/min) × PaCO2) / (PBW × 100 × 37.5); about 1 in
+ * health, higher with more dead space. `null` unless VE ≥ 0, PaCO2 ≥ 0 and PBW > 0.
+ * Sources: `sinha-2009`, `sinha-2019`.
+ */
+export function ventilatoryRatio(veMlPerMin: number, paco2Mmhg: number, pbwKg: number): number | null {
+  if (!allFinite(veMlPerMin, paco2Mmhg, pbwKg) || veMlPerMin < 0 || paco2Mmhg < 0 || pbwKg <= 0) return null;
+  return finiteOrNull(
+    (veMlPerMin * paco2Mmhg) / (pbwKg * VENTILATORY_RATIO_VE_ML_PER_KG * VENTILATORY_RATIO_PACO2_MMHG),
+  );
+}

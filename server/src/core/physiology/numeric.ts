@@ -1,0 +1,35 @@
+/**
+ * Internal numeric guards shared by the physiology modules (not re-exported by `index.ts`).
+ *
+ * Every physiology function is total: it returns `null` instead of NaN or ±Infinity and never
+ * throws. These helpers keep that rule in one place.
+ */
+
+/** True when every value is a finite number (rejects NaN, ±Infinity and non-numbers at run time). */
+export function allFinite(...values: readonly number[]): boolean {
+  for (const value of values) {
+    if (typeof value !== 'number' || !Number.isFinite(value)) return false;
+  }
+  return true;
+}
+
+/** The value itself when finite (with −0 folded to 0), otherwise `null`. */
+export function finiteOrNull(value: number): number | null {
+  if (!Number.isFinite(value)) return null;
+  return value === 0 ? 0 : value;
+}
+
+/** True when `value` is finite and lies in the closed interval [min, max]. */
+export function inClosedRange(value: number, min: number, max: number): boolean {
+  return Number.isFinite(value) && value >= min && value <= max;
+}
+
+/** True when `value` is a finite fraction of inspired oxygen: 0 < FiO2 ≤ 1. */
+export function isFio2Fraction(value: number): boolean {
+  return Number.isFinite(value) && value > 0 && value <= 1;
+}
+
+/** True when `value` is a finite saturation in percent: 0 ≤ value ≤ 100. */
+export function isPercent(value: number): boolean {
+  return inClosedRange(value, 0, 100);
+}

@@ -1,0 +1,109 @@
+/**
+ * Unit constants and conversions used by the physiology layer.
+ *
+ * Internal units of the core: gas pressures mmHg, airway pressures cmH2O, volumes mL, flows L/min,
+ * Hb g/dL, electrolytes mmol/L, FiO2 a fraction. Everything here converts into or out of those.
+ * Functions are total: a non-finite input, an input outside the physical domain, or a result that
+ * would overflow gives `null`.
+ */
+import { allFinite, finiteOrNull } from './numeric';
+
+/** Citations for the constants in this module (key → citation). */
+export const SOURCES = Object.freeze({
+  'nist-sp811':
+    'Thompson A, Taylor BN. Guide for the Use of the International System of Units (SI). NIST Special Publication 811, 2008 edition, appendix B (conversion factors: conventional mmHg = 133.3224 Pa, conventional cmH2O = 98.0665 Pa, international foot = 0.3048 m, degree Fahrenheit) (from memory).',
+  'si-brochure':
+    'Bureau International des Poids et Mesures. The International System of Units (SI Brochure), 9th edition, 2019: standard atmosphere 101 325 Pa, kelvin and degree Celsius (from memory).',
+} as const);
+
+/** Pascals in one conventional millimetre of mercury (13.5951 g/cm³ × 9.80665 m/s² × 1 mm). Source: `nist-sp811`. */
+export const PA_PER_MMHG = 133.322387415;
+/** mmHg in one kilopascal, rounded as pinned in shared/REFERENCES.md. Source: `nist-sp811`. */
+export const MMHG_PER_KPA = 7.50062;
+/** Pascals in one conventional centimetre of water (1 g/cm³ × 9.80665 m/s² × 1 cm). Source: `nist-sp811`. */
+export const PA_PER_CMH2O = 98.0665;
+/** mmHg in one cmH2O (98.0665 / 133.322387415, rounded). Source: `nist-sp811`. */
+export const MMHG_PER_CMH2O = 0.735559;
+/** Pascals in one standard atmosphere. Source: `si-brochure`. */
+export const PA_PER_ATMOSPHERE = 101325;
+/** Metres in one international foot (exact). Source: `nist-sp811`. */
+export const METRES_PER_FOOT = 0.3048;
+/** Absolute zero in degrees Celsius. Source: `si-brochure`. */
+export const ABSOLUTE_ZERO_CELSIUS = -273.15;
+
+/** Kilopascals to mmHg: kPa × 7.50062. Any finite pressure (gauge pressures may be negative). Source: `nist-sp811`. */
+export function kpaToMmhg(pressureKpa: number): number | null {
+  if (!allFinite(pressureKpa)) return null;
+  return finiteOrNull(pressureKpa * MMHG_PER_KPA);
+}
+
+/** mmHg to kilopascals: mmHg ÷ 7.50062. Source: `nist-sp811`. */
+export function mmhgToKpa(pressureMmhg: number): number | null {
+  if (!allFinite(pressureMmhg)) return null;
+  return finiteOrNull(pressureMmhg / MMHG_PER_KPA);
+}
+
+/** Pascals to mmHg: Pa ÷ 133.322387415. Source: `nist-sp811`. */
+export function paToMmhg(pressurePa: number): number | null {
+  if (!allFinite(pressurePa)) return null;
+  return finiteOrNull(pressurePa / PA_PER_MMHG);
+}
+
+/** Hectopascals (millibars, as weather stations report) to mmHg: hPa × 100 ÷ 133.322387415. Source: `nist-sp811`. */
+export function hpaToMmhg(pressureHpa: number): number | null {
+  if (!allFinite(pressureHpa)) return null;
+  return finiteOrNull((pressureHpa * 100) / PA_PER_MMHG);
+}
+
+/** cmH2O to mmHg: cmH2O × 0.735559. Source: `nist-sp811`. */
+export function cmh2oToMmhg(pressureCmh2o: number): number | null {
+  if (!allFinite(pressureCmh2o)) return null;
+  return finiteOrNull(pressureCmh2o * MMHG_PER_CMH2O);
+}
+
+/** mmHg to cmH2O: mmHg ÷ 0.735559. Source: `nist-sp811`. */
+export function mmhgToCmh2o(pressureMmhg: number): number | null {
+  if (!allFinite(pressureMmhg)) return null;
+  return finiteOrNull(pressureMmhg / MMHG_PER_CMH2O);
+}
+
+/**
+ * Degrees Fahrenheit to degrees Celsius: (°F − 32) × 5/9. `null` below absolute zero
+ * (−459.67 °F). Source: `nist-sp811`.
+ */
+export function celsiusFromFahrenheit(temperatureF: number): number | null {
+  if (!allFinite(temperatureF)) return null;
+  const celsius = ((temperatureF - 32) * 5) / 9;
+  if (celsius < ABSOLUTE_ZERO_CELSIUS) return null;
+  return finiteOrNull(celsius);
+}
+
+/** Degrees Celsius to degrees Fahrenheit: °C × 9/5 + 32. `null` below absolute zero. Source: `nist-sp811`. */
+export function fahrenheitFromCelsius(temperatureC: number): number | null {
+  if (!allFinite(temperatureC) || temperatureC < ABSOLUTE_ZERO_CELSIUS) return null;
+  return finiteOrNull((temperatureC * 9) / 5 + 32);
+}
+
+/** Feet to metres: ft × 0.3048 (altitudes below sea level are negative). Source: `nist-sp811`. */
+export function metresFromFeet(lengthFt: number): number | null {
+  if (!allFinite(lengthFt)) return null;
+  return finiteOrNull(lengthFt * METRES_PER_FOOT);
+}
+
+/** Metres to feet: m ÷ 0.3048. Source: `nist-sp811`. */
+export function feetFromMetres(lengthM: number): number | null {
+  if (!allFinite(lengthM)) return null;
+  return finiteOrNull(lengthM / METRES_PER_FOOT);
+}
+
+/** Percent to fraction (e.g. FiO2 40 % → 0.4): percent ÷ 100. `null` outside 0–100. Source: `si-brochure`. */
+export function fractionFromPercent(percent: number): number | null {
+  if (!allFinite(percent) || percent < 0 || percent > 100) return null;
+  return finiteOrNull(percent / 100);
+}
+
+/** Fraction to percent (e.g. SaO2 0.97 → 97): fraction × 100. `null` outside 0–1. Source: `si-brochure`. */
+export function percentFromFraction(fraction: number): number | null {
+  if (!allFinite(fraction) || fraction < 0 || fraction > 1) return null;
+  return finiteOrNull(fraction * 100);
+}

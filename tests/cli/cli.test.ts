@@ -1,0 +1,153 @@
+// The command line: exit codes, the JSON shape, unreadable input, colour, stdin.
+// Most tests call `run` with in-memory streams; a few run the built bundle as users do.
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync, writeFileSync, mkdirSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { z } from 'zod';
+import { run, type Io } from '../../server/src/cli/main';
+
+function io(stdinText = '', env: NodeJS.ProcessEnv = { NO_COLOR: '1' }): Io & { out: () => string; err: () => string } {
+  let out = '';
+  let err = '';
+  return {
+    cwd: process.cwd(),
+    env,
+    stdout: { write: (s: string) => { out += s; return true; }, isTTY: false },
+    stderr: { write: (s: string) => { err += s; return true; } },
+    stdin: () => Buffer.from(stdinText),
+    out: () => out,
+    err: () => err,
+  };
+}
+
+const jsonShape = z.object({
+  pneumark: z.literal(1),
+  files: z.array(z.object({
+    path: z.string(),
+    problem: z.string().nullable(),
+    findings: z.array(z.object({
+      code: z.string().regex(/^PN\d{3}$/),
+      alias: z.string(),
+      severity: z.enum(['error', 'warning', 'information', 'hint']),
+      message: z.string(),
+      line: z.number().int().positive(),
+      column: z.number().int().positive(),
+      endLine: z.number().int().positive(),
+      endColumn: z.number().int().positive(),
+      range: z.object({ start: z.object({ line: z.number(), character: z.number() }), end: z.object({ line: z.number(), character: z.number() }) }),
+      fixes: z.array(z.object({ title: z.string(), edits: z.array(z.object({ newText: z.string() }).passthrough()) }).passthrough()),
+      doc: z.string().startsWith('docs/checks.md#'),
+    }).strict()),
+    timepoints: z.array(z.object({ index: z.number(), label: z.string(), values: z.array(z.object({ field: z.string(), unit: z.string().nullable() }).passthrough()) }).passthrough()).optional(),
+  }).passthrough()),
+  summary: z.object({ files: z.number(), unreadable: z.number(), errors: z.number(), warnings: z.number(), information: z.number(), hints: z.number() }).strict(),
+});
+
+function tempDir(): string {
+  return mkdtempSync(join(tmpdir(), 'pneumark-cli-'));
+}
+
+describe('pneumark check', () => {
+  it('exits 0 on clean notes and 1 when any finding is an error', () => {
+    const clean = io();
+    expect(run(['check', 'samples/summit-hut-evacuation.pneu'], clean)).toBe(0);
+    expect(clean.out()).toMatch(/1 note checked: 0 errors/);
+    const broken = io();
+    expect(run(['check', 'samples/broken-note.pneu'], broken)).toBe(1);
+    expect(broken.out()).toMatch(/samples\/broken-note\.pneu:4:1 {2}error {2}PN101 unknown-section/);
+  });
+
+  it('exits 2 on usage errors', () => {
+    expect(run(['check'], io())).toBe(2);
+    expect(run(['check', '--format', 'xml', 'samples'], io())).toBe(2);
+    expect(run(['check', '--colour', 'samples'], io())).toBe(2);
+    expect(run(['frobnicate'], io())).toBe(2);
+    expect(run([], io())).toBe(2);
+    expect(run(['show'], io())).toBe(2);
+  });
+
+  it('checks every .pneu in a folder, in a stable order', () => {
+    const out = io();
+    run(['check', '--format', 'json', 'samples'], out);
+    const parsed = jsonShape.parse(JSON.parse(out.out()));
+    expect(parsed.files.map((f) => f.path)).toEqual([...parsed.files.map((f) => f.path)].sort());
+    expect(parsed.files.length).toBeGreaterThanOrEqual(4);
+  });
+
+  it('writes JSON in the documented shape, with timepoints and values in force', () => {
+    const out = io();
+    expect(run(['check', '--format', 'json', 'samples/broken-note.pneu'], out)).toBe(1);
+    const parsed = jsonShape.parse(JSON.parse(out.out()));
+    const file = parsed.files[0]!;
+    const first = file.findings[0]!;
+    expect(first).toMatchObject({ code: 'PN101', alias: 'unknown-section', severity: 'error', line: 4, column: 1, doc: 'docs/checks.md#pn101-unknown-section' });
+    expect(parsed.summary.errors).toBe(file.findings.filter((f) => f.severity === 'error').length);
+    expect(file.timepoints?.length).toBe(10);
+  });
+
+  it('reports missing, binary and huge files in one line each, and goes on', () => {
+    const dir = tempDir();
+    writeFileSync(join(dir, 'binary.pneu'), Buffer.from([0x76, 0x00, 0x01, 0x02]));
+    writeFileSync(join(dir, 'ok.pneu'), 'vitals hr 80\n');
+    const out = io();
+    const code = run(['check', join(dir, 'binary.pneu'), join(dir, 'missing.pneu'), join(dir, 'ok.pneu')], out);
+    expect(code).toBe(2);
+    expect(out.err()).toMatch(/binary.pneu: looks like a binary file/);
+    expect(out.err()).toMatch(/missing.pneu: no such file or folder/);
+    expect(out.out()).toMatch(/1 note checked, 2 could not be read/);
+  });
+
+  it('reads a note from standard input with -', () => {
+    const out = io('@ 08:00\nvitals spo2 104\n');
+    expect(run(['check', '-'], out)).toBe(1);
+    expect(out.out()).toMatch(/<stdin>:2:\d+ {2}error {2}PN306/);
+  });
+
+  it('shows only errors with --quiet', () => {
+    const out = io();
+    run(['check', '--quiet', 'samples/broken-note.pneu'], out);
+    expect(out.out()).not.toMatch(/ {2}warning {2}/);
+    expect(out.out()).toMatch(/error/);
+  });
+});
+
+describe('pneumark show', () => {
+  it('prints each timepoint with normalised values, carried values and findings under their line', () => {
+    const out = io();
+    expect(run(['show', 'samples/home-oxygen-exacerbation.pneu'], out)).toBe(0);
+    const text = out.out();
+    expect(text).toMatch(/@ day 1 14:20 {2}emergency department/);
+    expect(text).toMatch(/PaCO2 72 mmHg \(9\.6 kPa\)/);
+    const broken = io();
+    run(['show', 'samples/broken-note.pneu'], broken);
+    expect(broken.out()).toMatch(/vitals {3}SpO2 104 % \(not used\)\n {6}✖ error PN306/);
+  });
+
+  it('uses colour on a terminal unless NO_COLOR is set', () => {
+    const tty = io('', {});
+    tty.stdout.isTTY = true;
+    run(['show', 'samples/summit-hut-evacuation.pneu'], tty);
+    expect(tty.out()).toContain('\u001b[');
+    const noColour = io('', { NO_COLOR: '1' });
+    noColour.stdout.isTTY = true;
+    run(['show', 'samples/summit-hut-evacuation.pneu'], noColour);
+    expect(noColour.out()).not.toContain('\u001b[');
+  });
+});
+
+describe('the built command', () => {
+  it('runs as a program, with exit codes for the shell', () => {
+    const ok = spawnSync(process.execPath, ['dist/cli.js', 'check', 'samples/icu-ventilated-lung-injury.pneu'], { encoding: 'utf8' });
+    expect(ok.status).toBe(0);
+    const bad = spawnSync(process.execPath, ['dist/cli.js', 'check', '-'], { input: '@ 08:00\nabg ph 9.1\n', encoding: 'utf8' });
+    expect(bad.status).toBe(1);
+    expect(bad.stdout).toMatch(/PN301/);
+    const dir = tempDir();
+    mkdirSync(join(dir, 'nested'));
+    writeFileSync(join(dir, 'nested', 'a.pneu'), 'vitals hr 80\n');
+    const folder = spawnSync(process.execPath, [join(process.cwd(), 'dist/cli.js'), 'check', '.'], { cwd: dir, encoding: 'utf8' });
+    expect(folder.stdout).toMatch(/1 note checked/);
+  });
+});

@@ -1,0 +1,69 @@
+// Properties of the parser and checker on generated input: they never throw, every line of
+// the text has a node, and every range lies inside the text.
+import fc from 'fast-check';
+import { describe, expect, it } from 'vitest';
+import { checkNote } from '../../server/src/core/check-note';
+import { parseNote, splitLines } from '../../server/src/core/syntax/parser';
+import type { Range } from '../../server/src/core/types';
+import { anyText } from '../helpers/arbitraries';
+
+export const PROPERTY_RUNS = 600;
+
+function inside(range: Range, lines: readonly string[]): boolean {
+  const within = (p: Range['start']) => p.line >= 0 && p.line < lines.length && p.character >= 0 && p.character <= (lines[p.line]?.length ?? -1);
+  return within(range.start) && within(range.end) && (range.start.line < range.end.line || (range.start.line === range.end.line && range.start.character <= range.end.character));
+}
+
+describe('parser properties', () => {
+  it(`never throws and gives every line a node (${PROPERTY_RUNS} generated notes)`, () => {
+    fc.assert(
+      fc.property(anyText, (text) => {
+        const tree = parseNote(text);
+        expect(tree.lines.length).toBe(splitLines(text).lines.length);
+        tree.lines.forEach((node, i) => expect(node.line).toBe(i));
+      }),
+      { numRuns: PROPERTY_RUNS },
+    );
+  });
+
+  it(`keeps every finding, fix and related range inside the text (${PROPERTY_RUNS} generated notes)`, () => {
+    fc.assert(
+      fc.property(anyText, (text) => {
+        const lines = splitLines(text).lines.map((l) => l.text);
+        const { findings } = checkNote(text);
+        for (const f of findings) {
+          expect(inside(f.range, lines), `${f.code} ${JSON.stringify(f.range)}`).toBe(true);
+          for (const fix of f.fixes) for (const e of fix.edits) expect(inside(e.range, lines)).toBe(true);
+          for (const r of f.related ?? []) expect(inside(r.range, lines)).toBe(true);
+          expect(f.message).not.toMatch(/NaN|Infinity|undefined/);
+        }
+      }),
+      { numRuns: PROPERTY_RUNS },
+    );
+  });
+
+  it('spans of keys, values and units cover exactly their text', () => {
+    fc.assert(
+      fc.property(anyText, (text) => {
+        for (const node of parseNote(text).lines) {
+          if (node.kind !== 'section') continue;
+          for (const item of node.items) {
+            if (item.key) expect(node.text.slice(item.key.span.start, item.key.span.end)).toBe(item.key.text);
+            if (item.value) expect(node.text.slice(item.value.span.start, item.value.span.end)).toBe(item.value.text);
+            if (item.unit) expect(node.text.slice(item.unit.span.start, item.unit.span.end)).toBe(item.unit.text);
+          }
+        }
+      }),
+      { numRuns: PROPERTY_RUNS },
+    );
+  });
+
+  it('parses in time linear in the size of the note', () => {
+    // Not a timing assertion: the parser's work per character is bounded, shown by the
+    // tree of a 200,000-character line and 20,000 lines coming back complete.
+    const longLine = `vitals ${'hr 80, '.repeat(28000)}`;
+    expect(parseNote(longLine).lines[0]?.kind).toBe('section');
+    const many = 'vitals hr 80\n'.repeat(20000);
+    expect(parseNote(many).lines.length).toBe(20001);
+  });
+});

@@ -1,0 +1,203 @@
+import { describe, expect, it } from 'vitest';
+import { parseNote, readClock, readOffset, splitLines } from '../../server/src/core/syntax/parser';
+import type { ItemNode, LineNode, SectionLine, TimepointLine } from '../../server/src/core/syntax/tree';
+
+function line(text: string): LineNode {
+  const node = parseNote(text).lines[0];
+  if (!node) throw new Error('no line');
+  return node;
+}
+function section(text: string): SectionLine {
+  const node = line(text);
+  if (node.kind !== 'section') throw new Error(`expected a section line, got ${node.kind}`);
+  return node;
+}
+function timepoint(text: string): TimepointLine {
+  const node = line(text);
+  if (node.kind !== 'timepoint') throw new Error(`expected a timepoint, got ${node.kind}`);
+  return node;
+}
+/** The text a span covers, so range assertions read like the note. */
+function at(text: string, span: { start: number; end: number } | undefined): string {
+  return span ? text.slice(span.start, span.end) : '<none>';
+}
+function summary(text: string, item: ItemNode): string {
+  return [item.keyName, at(text, item.value?.span), at(text, item.unit?.span ?? undefined)].join(' | ');
+}
+
+describe('lines and line ends', () => {
+  it('splits on LF, CRLF and CR as LSP does, remembering the first line end', () => {
+    expect(splitLines('a\nb').lines.map((l) => l.text)).toEqual(['a', 'b']);
+    const crlf = splitLines('a\r\nb\r\n');
+    expect(crlf.lines.map((l) => l.text)).toEqual(['a', 'b', '']);
+    expect(crlf.eol).toBe('\r\n');
+    expect(crlf.lines[1]?.offset).toBe(3);
+    expect(splitLines('a\rb').lines.map((l) => l.text)).toEqual(['a', 'b']);
+  });
+
+  it('gives every line a node, blank and comment lines included', () => {
+    const tree = parseNote('# only a comment\n\nvitals hr 80');
+    expect(tree.lines.map((l) => l.kind)).toEqual(['blank', 'blank', 'section']);
+    expect(tree.lines[0]?.comment?.text).toBe('# only a comment');
+  });
+
+  it('treats a byte-order mark and tabs as blanks, keeping UTF-16 columns', () => {
+    const text = '\uFEFFvitals\thr\t80';
+    const node = section(text);
+    expect(node.sectionToken.span.start).toBe(1);
+    expect(summary(text, node.items[0]!)).toBe('hr | 80 | <none>');
+  });
+
+  it('counts columns in UTF-16 code units after non-ASCII prose', () => {
+    const text = 'vitals hr 80 # 😀 naïve';
+    const node = section(text);
+    expect(node.comment?.span).toEqual({ start: 13, end: text.length });
+    const note = section('note   café ☕ — breathing easier 🙂');
+    expect(note.prose?.text).toBe('café ☕ — breathing easier 🙂');
+  });
+});
+
+describe('section lines', () => {
+  it('reads key value unit items, comma separated, with exact spans', () => {
+    const text = 'vitals    hr 118, rr 26, spo2 89 %, temp 38.4 C, bp 96/58';
+    const node = section(text);
+    expect(node.section).toBe('vitals');
+    expect(node.items.map((i) => summary(text, i))).toEqual([
+      'hr | 118 | <none>',
+      'rr | 26 | <none>',
+      'spo2 | 89 | %',
+      'temp | 38.4 | C',
+      'bp | 96/58 | <none>',
+    ]);
+    expect(node.issues).toEqual([]);
+  });
+
+  it('accepts items without commas, glued units and upper-case keys', () => {
+    const text = 'VITALS HR 118 RR 26 SpO2 89% temp 38.4C';
+    const node = section(text);
+    expect(node.items.map((i) => summary(text, i))).toEqual(['hr | 118 | <none>', 'rr | 26 | <none>', 'spo2 | 89 | %', 'temp | 38.4 | C']);
+  });
+
+  it('reads section aliases', () => {
+    expect(section('obs hr 80').section).toBe('vitals');
+    expect(section('ventilator peep 5').section).toBe('vent');
+  });
+
+  it('reads the shorthand gas in order pH/PCO2/PO2/HCO3, with an optional pressure unit', () => {
+    const text = 'abg 7.28/7.5/9.5/26 kPa, be -2';
+    const node = section(text);
+    expect(node.items.map((i) => summary(text, i))).toEqual([
+      'ph | 7.28 | <none>',
+      'pco2 | 7.5 | kPa',
+      'po2 | 9.5 | kPa',
+      'hco3 | 26 | <none>',
+      'be | -2 | <none>',
+    ]);
+    expect(node.items.slice(0, 4).every((i) => i.implied === 'shorthand' && i.key === null)).toBe(true);
+  });
+
+  it('accepts a two-part shorthand and rejects five parts', () => {
+    expect(section('vbg 7.31/52').items.map((i) => i.keyName)).toEqual(['ph', 'pco2']);
+    expect(section('abg 1/2/3/4/5').issues.map((i) => i.check)).toEqual(['bad-shorthand']);
+  });
+
+  it('reads an oxygen device first, with its flow and further settings', () => {
+    const cases: [string, string[]][] = [
+      ['oxygen room air', ['device | room air | <none>']],
+      ['oxygen cannula 4 L/min', ['device | cannula | <none>', 'flow | 4 | L/min']],
+      ['oxygen mask 10 L/min', ['device | mask | <none>', 'flow | 10 | L/min']],
+      ['oxygen hfnc 50 L/min fio2 60 %', ['device | hfnc | <none>', 'flow | 50 | L/min', 'fio2 | 60 | %']],
+      ['oxygen niv ipap 14 epap 6 fio2 40 %', ['device | niv | <none>', 'ipap | 14 | <none>', 'epap | 6 | <none>', 'fio2 | 40 | %']],
+      ['oxygen cpap 8', ['device | cpap | <none>', 'level | 8 | <none>']],
+      ['oxygen device cannula, flow 2', ['device | cannula | <none>', 'flow | 2 | <none>']],
+    ];
+    for (const [text, expected] of cases) expect(section(text).items.map((i) => summary(text, i)), text).toEqual(expected);
+  });
+
+  it('reads word values (mode, sex, gas unit)', () => {
+    const text = 'vent mode VC, vt 430 mL, peep 10';
+    expect(section(text).items.map((i) => summary(text, i))).toEqual(['mode | VC | <none>', 'vt | 430 | mL', 'peep | 10 | <none>']);
+    const units = 'units gas kPa';
+    expect(section(units).items.map((i) => summary(units, i))).toEqual(['gas | kPa | <none>']);
+  });
+
+  it('keeps note prose verbatim, up to a comment', () => {
+    const node = section('note   free prose, with commas: 7,35 and @ signs # a comment');
+    expect(node.prose?.text).toBe('free prose, with commas: 7,35 and @ signs');
+    expect(node.items).toEqual([]);
+    expect(node.comment?.text).toBe('# a comment');
+  });
+
+  it('keeps an unknown unit as the unit, for the unit check to name', () => {
+    const text = 'abg po2 71 mmhgg, pco2 40';
+    expect(section(text).items.map((i) => summary(text, i))).toEqual(['po2 | 71 | mmhgg', 'pco2 | 40 | <none>']);
+  });
+
+  it('reports a decimal comma with a fix that writes a point', () => {
+    const text = 'abg ph 7,35, pco2 41';
+    const node = section(text);
+    expect(node.items.map((i) => summary(text, i))).toEqual(['ph | 7,35 | <none>', 'pco2 | 41 | <none>']);
+    const issue = node.issues.find((i) => i.check === 'decimal-comma');
+    expect(issue?.fixes[0]?.edits[0]?.newText).toBe('7.35');
+    expect(at(text, issue?.span)).toBe('7,35');
+  });
+
+  it('reports a key without a value and a value without a key', () => {
+    expect(section('vitals hr, rr 12').issues.map((i) => i.check)).toEqual(['missing-value']);
+    expect(section('vitals hr 80 90').issues.map((i) => i.check)).toEqual(['stray-text']);
+    expect(section('vitals 80').issues.map((i) => i.check)).toEqual(['stray-text']);
+  });
+
+  it('reports an unknown section and offers the near section or the owner of a key', () => {
+    const node = line('vitls hr 80');
+    expect(node.kind).toBe('unknown');
+    expect(node.issues[0]?.fixes.map((f) => f.title)).toContain('Change to `vitals`');
+    const bare = line('hr 118');
+    expect(bare.issues[0]?.fixes.map((f) => f.title)).toContain('Start the line with `vitals`');
+  });
+});
+
+describe('timepoints', () => {
+  it('reads `@ day N HH:MM label`', () => {
+    const node = timepoint('@ day 2 07:40  arrival on the ward');
+    expect(node.time).toMatchObject({ kind: 'clock', day: 2, minutes: 460, text: 'day 2 07:40' });
+    expect(node.label?.text).toBe('arrival on the ward');
+  });
+
+  it('reads `@ HH:MM`, `@HH:MM`, `@ day N` and offsets', () => {
+    expect(timepoint('@ 07:40').time).toMatchObject({ kind: 'clock', day: null, minutes: 460 });
+    expect(timepoint('@07:40 x').time).toMatchObject({ kind: 'clock', minutes: 460 });
+    expect(timepoint('@ day 3').time).toMatchObject({ kind: 'day', day: 3, minutes: null });
+    expect(timepoint('@ +2h30 later').time).toMatchObject({ kind: 'offset', minutes: 150 });
+  });
+
+  it('reads offsets in days, hours and minutes', () => {
+    expect(readOffset('+2h30')).toBe(150);
+    expect(readOffset('+2h')).toBe(120);
+    expect(readOffset('+45m')).toBe(45);
+    expect(readOffset('+45min')).toBe(45);
+    expect(readOffset('+1d')).toBe(1440);
+    expect(readOffset('+1d6h')).toBe(1800);
+    expect(readOffset('+90')).toBeNull();
+    expect(readOffset('+h')).toBeNull();
+    expect(readOffset('+30m2h')).toBeNull();
+  });
+
+  it('reads clock times and refuses impossible ones', () => {
+    expect(readClock('00:00')).toBe(0);
+    expect(readClock('7:05')).toBe(425);
+    expect(readClock('23:59')).toBe(1439);
+    expect(readClock('24:00')).toBeNull();
+    expect(readClock('12:60')).toBeNull();
+    expect(readClock('1200')).toBeNull();
+  });
+
+  it('reports a missing or unreadable time and a calendar date', () => {
+    expect(timepoint('@').issues.map((i) => i.check)).toEqual(['bad-time']);
+    expect(timepoint('@ 25:10').issues.map((i) => i.check)).toEqual(['bad-time']);
+    expect(timepoint('@ +soon').issues.map((i) => i.check)).toEqual(['bad-time']);
+    const date = timepoint('@ 2026-03-04 08:00');
+    expect(date.issues[0]?.message).toMatch(/relative days/);
+    expect(timepoint('@ day x').issues.map((i) => i.check)).toEqual(['bad-time']);
+  });
+});

@@ -1,0 +1,128 @@
+import { describe, expect, it } from 'vitest';
+import { checkNote } from '../../server/src/core/check-note';
+import type { Timepoint } from '../../server/src/core/analysis/model';
+
+function timeline(text: string) {
+  return checkNote(text).analysis.timeline;
+}
+function value(tp: Timepoint | undefined, id: string): number | string | null | undefined {
+  const v = tp?.values.get(id);
+  return v ? (v.stated.word ?? v.stated.value) : undefined;
+}
+function codes(text: string): string[] {
+  return checkNote(text).findings.map((f) => f.code);
+}
+
+describe('timepoints and time', () => {
+  it('orders day, clock and offset times on one clock of minutes since day 1 00:00', () => {
+    const t = timeline('@ day 1 07:40\n@ 09:00\n@ +2h30\n@ day 2 08:00\n@ 01:00');
+    expect(t.timepoints.map((tp) => tp.time.minutes)).toEqual([460, 540, 690, 1920, 2940]);
+    expect(t.timepoints.map((tp) => tp.time.day)).toEqual([1, 1, 1, 2, 3]);
+  });
+
+  it('reads a clock time earlier than the one before as the next day, without a finding', () => {
+    const t = timeline('@ 23:30\n@ 00:15');
+    expect(t.timepoints.map((tp) => tp.time.minutes)).toEqual([1410, 1455]);
+    expect(codes('@ 23:30\n@ 00:15')).toEqual([]);
+  });
+
+  it('makes an implicit first timepoint for values before any `@`', () => {
+    const t = timeline('patient age 60 y\nvitals hr 80\n@ 08:00\nvitals hr 90');
+    expect(t.timepoints.map((tp) => tp.label)).toEqual(['start', '08:00']);
+    expect(t.header.map((s) => s.fieldId)).toEqual(['age']);
+  });
+});
+
+describe('values in force and where they came from', () => {
+  const note = [
+    'patient age 70 y, sex male, height 175 cm', // 0
+    'place altitude 1650 m', //                    1
+    '@ day 1 08:00 first', //                      2
+    'vent mode VC, vt 450, peep 8, fio2 0.5, plateau 25', // 3
+    'abg 7.40/40/90/24', //                        4
+    '@ 10:00 second', //                           5
+    'vent peep 10', //                             6
+    'abg 7.38/42/85/24', //                        7
+    '@ 12:00 third', //                            8
+    'oxygen cannula 2 L/min', //                   9
+    '@ 14:00 fourth', //                           10
+    'vent mode PS, ps 10', //                      11
+  ].join('\n');
+  const t = timeline(note);
+  const [first, second, third, fourth] = t.timepoints;
+
+  it('carries settings forward until restated, and says from where', () => {
+    expect(value(second, 'peep')).toBe(10);
+    expect(second?.values.get('peep')?.origin.kind).toBe('here');
+    expect(value(second, 'fio2')).toBe(0.5);
+    expect(second?.values.get('fio2')?.origin).toMatchObject({ kind: 'carried', line: 3, timepoint: 0, timepointLabel: 'first' });
+    expect(second?.values.get('age')?.origin).toMatchObject({ kind: 'header', line: 0 });
+  });
+
+  it('never carries measurements or device readings', () => {
+    expect(value(first, 'pao2')).toBe(90);
+    expect(value(second, 'pao2')).toBe(85);
+    expect(value(third, 'pao2')).toBeUndefined();
+    expect(value(first, 'plateau')).toBe(25);
+    expect(value(second, 'plateau')).toBeUndefined();
+  });
+
+  it('ends ventilation with an oxygen line, and an oxygen line with ventilation', () => {
+    expect(value(third, 'device')).toBe('cannula');
+    expect(value(third, 'peep')).toBeUndefined();
+    expect(value(fourth, 'device')).toBeUndefined();
+    expect(value(fourth, 'mode')).toBe('PS');
+  });
+
+  it('starts a new set of settings with a new mode, keeping PEEP and FiO2', () => {
+    const t2 = timeline('@ 08:00\nvent mode VC, vt 450, rate 20, peep 8, fio2 0.5\n@ 09:00\nvent mode PS, ps 10');
+    const later = t2.timepoints[1];
+    expect(value(later, 'vt')).toBeUndefined();
+    expect(value(later, 'rate')).toBeUndefined();
+    expect(value(later, 'peep')).toBe(8);
+    expect(value(later, 'fio2')).toBe(0.5);
+  });
+
+  it('estimates barometric pressure from altitude, and a later place replaces it', () => {
+    expect(first?.barometricMmhg).toBeGreaterThan(600);
+    expect(first?.barometricMmhg).toBeLessThan(640);
+    const moved = timeline('place altitude 4000 m\n@ 08:00\nvitals hr 90\n@ 12:00\nplace barometric 760\nvitals hr 80');
+    expect(moved.timepoints[1]?.barometricMmhg).toBe(760);
+  });
+});
+
+describe('reading units', () => {
+  it('reads bare gas pressures in the note gas unit, and explicit units over it', () => {
+    const t = timeline('units gas kPa\n@ 08:00\nabg pco2 5.3, po2 90 mmHg');
+    expect(value(t.timepoints[0], 'paco2')).toBeCloseTo(5.3 * 7.50062, 3);
+    expect(value(t.timepoints[0], 'pao2')).toBe(90);
+  });
+
+  it('reads FiO2 up to 1 as a fraction and above as a percentage', () => {
+    const t = timeline('@ 1:00\noxygen venturi, fio2 0.28\n@ 2:00\noxygen venturi, fio2 28\n@ 3:00\noxygen venturi, fio2 28 %');
+    expect(t.timepoints.map((tp) => value(tp, 'fio2'))).toEqual([0.28, 0.28, 0.28]);
+  });
+
+  it('flags a bare number that only makes sense in the other unit, and keeps it out of use', () => {
+    const result = checkNote('@ 08:00\nabg po2 9.1, pco2 5.2');
+    expect(result.findings.map((f) => f.code)).toEqual(['PN204', 'PN204']);
+    const fixes = result.findings[0]?.fixes.map((f) => f.title);
+    expect(fixes).toEqual(['Mark as kPa', 'Convert to 68 mmHg']);
+    expect(result.analysis.timeline.timepoints[0]?.values.get('pao2')?.stated.usable).toBe(false);
+    expect(codes('@ 08:00\nvitals temp 101.3')).toEqual(['PN204']);
+    expect(codes('@ 08:00\nlabs albumin 31')).toEqual(['PN204']);
+    expect(codes('@ 08:00\nlabs albumin 31 g/L, hb 11.2')).toEqual([]);
+  });
+
+  it('does not flag real gases measured at extreme altitude', () => {
+    // Arterial samples at 8,400 m on Everest: PaO2 about 19–30 mmHg, PaCO2 about 10–16 mmHg,
+    // pH up to about 7.6 (Grocott MPW et al., "Arterial blood gases and oxygen content in climbers
+    // on Mount Everest", NEJM 2009;360:140–149 — values from memory).
+    const note = 'place altitude 8400 m\n@ 12:00\nabg ph 7.53, pco2 13.3, po2 24.6\n@ 12:30\nabg ph 7.60, pco2 10.3, po2 19.1';
+    expect(codes(note)).toEqual([]);
+    // The same bare numbers at sea level read more naturally as kPa, and Pneumark says so.
+    expect(codes('place altitude 0 m\n@ 12:00\nabg ph 7.53, pco2 13.3, po2 24.6')).toEqual(['PN204', 'PN204']);
+    // With the unit written, they are unusual at sea level.
+    expect(codes('place altitude 0 m\n@ 12:00\nabg ph 7.53, pco2 13.3 mmHg, po2 24.6 mmHg')).toEqual(['PN302', 'PN302']);
+  });
+});

@@ -1,0 +1,23 @@
+// docs/checks.md is generated from the check registry; it must match what the generator writes.
+import { readFileSync } from 'node:fs';
+import { describe, expect, it } from 'vitest';
+import { renderCheckDocs } from '../server/src/core/checks/docs';
+import { CHECKS, docAnchor } from '../server/src/core/checks/registry';
+import { FIELD_TABLE_START, withFieldTable } from '../server/src/core/fields/docs';
+
+describe('check documentation', () => {
+  it('is up to date with the registry (run `npm run docs` after changing a check)', () => {
+    expect(readFileSync('docs/checks.md', 'utf8')).toBe(renderCheckDocs());
+  });
+
+  it('grammar/README.md carries the current table of sections, keys and units', () => {
+    const doc = readFileSync('grammar/README.md', 'utf8');
+    expect(doc).toContain(FIELD_TABLE_START);
+    expect(withFieldTable(doc)).toBe(doc);
+  });
+
+  it('has a section per check at its anchor', () => {
+    const text = renderCheckDocs();
+    for (const c of CHECKS) expect(text).toContain(`<a id="${docAnchor(c)}"></a>`);
+  });
+});
