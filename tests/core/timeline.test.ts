@@ -9,8 +9,9 @@ function value(tp: Timepoint | undefined, id: string): number | string | null | 
   const v = tp?.values.get(id);
   return v ? (v.stated.word ?? v.stated.value) : undefined;
 }
+/** Codes of the findings that flag a value (errors and warnings; readings excluded). */
 function codes(text: string): string[] {
-  return checkNote(text).findings.map((f) => f.code);
+  return checkNote(text).findings.filter((f) => f.severity === 'error' || f.severity === 'warning').map((f) => f.code);
 }
 
 describe('timepoints and time', () => {

@@ -1,7 +1,35 @@
-/** Derived values and interpretations under a timepoint (filled in by the physiology layer). */
+/** Derived values, missing inputs and interpretations under a timepoint. */
 import type { Timepoint } from '../core/analysis/model';
+import type { TimepointDerivation } from '../core/derive/model';
+import { formatNumber } from '../core/util/format';
 import type { Paint } from './colour';
 
-export function renderDerived(_tp: Timepoint, _p: Paint): string[] {
-  return [];
+export function renderDerived(_tp: Timepoint, d: TimepointDerivation | undefined, p: Paint): string[] {
+  if (!d) return [];
+  const lines: string[] = [];
+  const shown = d.derived.filter((v) => v.id !== 'barometric' || v.inputs[0]?.origin.kind !== 'default');
+  if (shown.length > 0) {
+    const parts = shown.map((v) => {
+      const number = v.range ? `${formatNumber(v.range.low, v.decimals)}–${formatNumber(v.range.high, v.decimals)}` : formatNumber(v.value, v.decimals);
+      const marks = `${v.estimate ? ' est.' : ''}${v.usesCarried ? '*' : ''}`;
+      return `${v.short} ${p.bold(number)}${v.unit ? ` ${v.unit}` : ''}${marks}`;
+    });
+    lines.push(`  ${p.green('derived'.padEnd(8))} ${parts.join(p.dim(' · '))}`);
+    if (shown.some((v) => v.usesCarried)) lines.push(`  ${' '.repeat(8)} ${p.dim('* uses a value carried from an earlier timepoint')}`);
+  }
+  for (const [needs, what] of groupMissing(d)) lines.push(`  ${p.dim('missing'.padEnd(8))} ${p.dim(`add ${needs} to get ${what.join(', ')}`)}`);
+  for (const i of d.interpretations) lines.push(`  ${p.cyan('reading'.padEnd(8))} ${i.text}`);
+  return lines;
+}
+
+/** Missing values grouped by what to add: one line per distinct need. */
+export function groupMissing(d: TimepointDerivation): Map<string, string[]> {
+  const groups = new Map<string, string[]>();
+  for (const m of d.missing) {
+    const key = m.needs.join(' and ');
+    const list = groups.get(key) ?? [];
+    list.push(m.message.slice(m.message.lastIndexOf(' to get ') + 8));
+    groups.set(key, list);
+  }
+  return groups;
 }

@@ -7,6 +7,7 @@ import type { NoteResult } from '../core/check-note';
 import type { StatedValue, Timepoint } from '../core/analysis/model';
 import { shortOf, formatAlternative, formatStated, describeOrigin } from '../core/present';
 import type { LineNode } from '../core/syntax/tree';
+import type { TimepointDerivation } from '../core/derive/model';
 import type { Finding } from '../core/types';
 import type { Paint } from './colour';
 import { renderDerived } from './render-derived';
@@ -51,7 +52,7 @@ export function renderShow(path: string, result: NoteResult, p: Paint): string {
     }
     for (const f of byLine.get(node.line) ?? []) out.push(renderFinding(f, p));
     const ending = tpByEnd.get(node.line);
-    if (ending) out.push(...renderTimepointFooter(ending, p));
+    if (ending) out.push(...renderTimepointFooter(ending, analysis.derivations[ending.index], p));
   }
   return out.join('\n');
 }
@@ -68,7 +69,7 @@ function renderSectionLine(node: Extract<LineNode, { kind: 'section' }>, stated:
   return `${head} ${parts.join(p.dim(' · '))}`;
 }
 
-function renderTimepointFooter(tp: Timepoint, p: Paint): string[] {
+function renderTimepointFooter(tp: Timepoint, derivation: TimepointDerivation | undefined, p: Paint): string[] {
   const carried = [...tp.values.values()].filter((v) => v.origin.kind === 'carried');
   const lines: string[] = [];
   const groups = new Map<string, string[]>();
@@ -79,7 +80,7 @@ function renderTimepointFooter(tp: Timepoint, p: Paint): string[] {
     groups.set(from, list);
   }
   for (const [from, values] of groups) lines.push(`  ${p.magenta('carried'.padEnd(8))} ${values.join(p.dim(' · '))} ${p.dim(`(${from})`)}`);
-  lines.push(...renderDerived(tp, p));
+  lines.push(...renderDerived(tp, derivation, p));
   return lines;
 }
 

@@ -5,7 +5,7 @@
  */
 import type { InputValue, Timepoint } from '../analysis/model';
 import { toRange } from '../syntax/tree';
-import { formatNumber } from '../util/format';
+import { formatShort } from '../util/format';
 import { defineCheck, type CheckContext } from './check';
 
 function orderCheck(ctx: CheckContext, lowId: string, highId: string, message: (low: number, high: number) => string): void {
@@ -46,7 +46,7 @@ export const peepAbovePlateau = defineCheck({
   },
   source: 'respiratory mechanics: plateau pressure is measured above atmospheric and includes PEEP (common practice, no source)',
   run(ctx) {
-    orderCheck(ctx, 'peep', 'plateau', (low, high) => `PEEP ${formatNumber(low, 0)} is above the plateau pressure ${formatNumber(high, 0)} cmH2O; plateau pressure includes PEEP.`);
+    orderCheck(ctx, 'peep', 'plateau', (low, high) => `PEEP ${formatShort(low)} is above the plateau pressure ${formatShort(high)} cmH2O; plateau pressure includes PEEP.`);
   },
 });
 
@@ -63,7 +63,7 @@ export const plateauAbovePeak = defineCheck({
   },
   source: 'respiratory mechanics: peak = plateau + resistive pressure (common practice, no source)',
   run(ctx) {
-    orderCheck(ctx, 'plateau', 'peak', (low, high) => `Plateau pressure ${formatNumber(low, 0)} is above the peak pressure ${formatNumber(high, 0)} cmH2O; were they swapped?`);
+    orderCheck(ctx, 'plateau', 'peak', (low, high) => `Plateau pressure ${formatShort(low)} is above the peak pressure ${formatShort(high)} cmH2O; were they swapped?`);
   },
 });
 

@@ -8,7 +8,11 @@
  */
 import type { CheckDef } from './check';
 import { badShorthand, badTime, decimalComma, duplicateKey, missingValue, otherUnitLikely, strayText, unitNotAllowed, unknownKey, unknownSection, unknownUnit, unknownWord } from './collected';
+import { pao2AboveAlveolar } from './alveolar-limit';
+import { gasInconsistent } from './gas-consistency';
 import { internalError } from './internal';
+import { acidBaseReading, oxygenationReading, respiratoryFailureReading, ventilationReading } from './interpretations';
+import { drivingPressureHigh, plateauHigh, tidalVolumeHigh } from './ventilation-limits';
 import { peepAbovePlateau, plateauAbovePeak, systolicBelowDiastolic } from './pressure-order';
 import { timeGoesBack } from './time-order';
 import { fio2OutOfRange, impossibleValue, saturationAbove100, unusualValue } from './value-bounds';
@@ -34,6 +38,15 @@ export const CHECKS: readonly CheckDef[] = validateCheckList([
   saturationAbove100,
   fio2OutOfRange,
   timeGoesBack,
+  pao2AboveAlveolar,
+  gasInconsistent,
+  tidalVolumeHigh,
+  plateauHigh,
+  drivingPressureHigh,
+  oxygenationReading,
+  ventilationReading,
+  respiratoryFailureReading,
+  acidBaseReading,
   internalError,
 ]);
 

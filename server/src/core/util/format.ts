@@ -4,3 +4,9 @@ export function formatNumber(value: number, decimals: number): string {
   const fixed = value.toFixed(Math.max(0, Math.min(6, decimals)));
   return fixed === '-0' || /^-0\.0*$/.test(fixed) ? fixed.slice(1) : fixed;
 }
+
+/** A number with as few decimals as it needs, up to `max` (29.5, 30, 0.21). */
+export function formatShort(value: number, max = 2): string {
+  if (!Number.isFinite(value)) return '—';
+  return String(Number(value.toFixed(max)));
+}

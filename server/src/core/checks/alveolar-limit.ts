@@ -1,0 +1,39 @@
+/** A PaO2 above the alveolar PO2 that the stated FiO2 and pressure allow is impossible. */
+import { describeInputOrigin } from '../derive/context';
+import { ALVEOLAR_ROUNDING_MMHG } from '../derive/gas-exchange';
+import { SOURCES } from '../physiology';
+import { toRange } from '../syntax/tree';
+import { formatNumber } from '../util/format';
+import { defineCheck } from './check';
+
+export const pao2AboveAlveolar = defineCheck({
+  code: 'PN401',
+  alias: 'pao2-above-alveolar',
+  title: 'PaO2 above the alveolar PO2',
+  severity: 'error',
+  tags: ['physiology'],
+  doc: {
+    fires: `The arterial PO2 is more than ${ALVEOLAR_ROUNDING_MMHG} mmHg above the alveolar PO2 that the FiO2, barometric pressure and PaCO2 in force allow. Blood cannot hold a higher PO2 than the gas it meets, so something in the note is wrong; no A–a gradient is computed.`,
+    example: '@ 08:00\noxygen room air\nabg ph 7.40, pco2 40, po2 160',
+    fix: 'Check the FiO2 in force (and where it came from), the unit of the PaO2 (kPa written as mmHg?), whether the sample was venous or arterial, and an air bubble in the syringe.',
+  },
+  source: SOURCES['alveolar-gas-equation'],
+  run(ctx) {
+    const { timeline, derivations } = ctx.analysis;
+    timeline.timepoints.forEach((tp, i) => {
+      const alveolar = derivations[i]?.derived.find((d) => d.id === 'pao2_alveolar');
+      const pao2 = tp.values.get('pao2');
+      if (!alveolar || !pao2 || pao2.origin.kind !== 'here' || !pao2.stated.usable || pao2.stated.value === null) return;
+      if (pao2.stated.value <= alveolar.value + ALVEOLAR_ROUNDING_MMHG) return;
+      const fio2 = alveolar.inputs.find((t) => t.name === 'PiO2') ? derivations[i]?.derived.find((d) => d.id === 'pio2')?.inputs.find((t) => t.name === 'FiO2') : undefined;
+      const related = fio2 && fio2.origin.kind !== 'default' && fio2.origin.kind !== 'derived'
+        ? [{ range: toRange(fio2.origin.line, fio2.origin.span), message: `FiO2 ${formatNumber(fio2.value, 2)} in force (${describeInputOrigin(fio2.origin)})` }]
+        : [];
+      ctx.report({
+        range: toRange(pao2.stated.line, pao2.stated.item.value?.span ?? pao2.stated.item.span),
+        message: `PaO2 ${formatNumber(pao2.stated.value, 0)} mmHg is above the alveolar PO2 of ${formatNumber(alveolar.value, 0)} mmHg that ${fio2 ? `FiO2 ${formatNumber(fio2.value, 2)}` : 'the FiO2'} allows here: check the FiO2, the unit, a venous sample or an air bubble.`,
+        related,
+      });
+    });
+  },
+});

@@ -1,0 +1,180 @@
+/** Derived values of acid–base balance. The interpretation itself lives in interpret.ts. */
+import {
+  SOURCES,
+  anionGap,
+  anionGapAlbuminCorrected,
+  classifyAcidBase,
+  deltaRatio,
+  expectedHco3Respiratory,
+  expectedPaco2MetabolicAcidosis,
+  expectedPaco2MetabolicAlkalosis,
+  hco3FromPhPco2,
+  type AcidBaseClassification,
+} from '../physiology';
+import { defineDerived, type DeriveContext, type Term } from './context';
+
+/** Serum bicarbonate when the laboratory gave one, else the gas analyser's. */
+function bicarbonate(c: DeriveContext): Term | null {
+  return c.field('hco3_serum', 'HCO3') ?? c.field('hco3', 'HCO3');
+}
+
+const classifications = new WeakMap<DeriveContext, AcidBaseClassification | null>();
+
+/** The acid–base classification of this timepoint's arterial gas (computed once). */
+export function classification(c: DeriveContext): AcidBaseClassification | null {
+  if (classifications.has(c)) return classifications.get(c) ?? null;
+  const ph = c.field('ph');
+  const paco2 = c.field('paco2');
+  const hco3 = c.field('hco3');
+  let result: AcidBaseClassification | null = null;
+  if (ph && paco2 && hco3) {
+    const gap = c.derived('anion_gap_albumin_corrected') ?? c.derived('anion_gap');
+    result = classifyAcidBase({ ph: ph.value, paco2Mmhg: paco2.value, hco3MmolL: hco3.value, anionGapMmolL: gap?.value });
+  }
+  classifications.set(c, result);
+  return result;
+}
+
+export const hco3Calculated = defineDerived({
+  id: 'hco3_calculated',
+  label: 'HCO3 calculated from pH and PaCO2',
+  short: 'HCO3 calc',
+  unit: 'mmol/L',
+  decimals: 1,
+  category: 'acid-base',
+  formula: '0.0307 × {PaCO2} × 10^({pH} − 6.1)',
+  source: SOURCES['henderson-hasselbalch'],
+  anchors: ['ph', 'paco2'],
+  compute(c) {
+    const ph = c.field('ph', 'pH');
+    const paco2 = c.field('paco2', 'PaCO2');
+    if (!ph || !paco2) return c.missing([ph, 'ph'], [paco2, 'pco2']);
+    return c.value(hco3FromPhPco2(ph.value, paco2.value), [ph, paco2]);
+  },
+});
+
+export const hco3Gap = defineDerived({
+  id: 'hco3_gap',
+  label: 'Reported minus calculated HCO3',
+  short: 'HCO3 gap',
+  unit: 'mmol/L',
+  decimals: 1,
+  category: 'acid-base',
+  formula: '{HCO3} − {HCO3 calc}',
+  source: `${SOURCES['henderson-hasselbalch']}; tolerance: ${SOURCES['pneumark-consistency-tolerance']}`,
+  anchors: ['hco3'],
+  compute(c) {
+    const reported = c.field('hco3', 'HCO3');
+    const calc = c.derived('hco3_calculated', 'HCO3 calc');
+    if (!reported || !calc) return c.missing([calc, c.lacking('hco3_calculated')]);
+    return c.value(reported.value - calc.value, [reported, calc]);
+  },
+});
+
+export const anionGapDef = defineDerived({
+  id: 'anion_gap',
+  label: 'Anion gap',
+  short: 'AG',
+  unit: 'mmol/L',
+  decimals: 0,
+  category: 'acid-base',
+  formula: '{Na} − ({Cl} + {HCO3})',
+  source: SOURCES['anion-gap'],
+  anchors: ['na', 'cl'],
+  compute(c) {
+    const na = c.field('na', 'Na');
+    const cl = c.field('cl', 'Cl');
+    const hco3 = bicarbonate(c);
+    if (!na || !cl || !hco3) return c.missing([na, 'na'], [cl, 'cl'], [hco3, 'hco3']);
+    return c.value(anionGap(na.value, cl.value, hco3.value), [na, cl, hco3], { notes: ['without potassium'] });
+  },
+});
+
+export const anionGapCorrected = defineDerived({
+  id: 'anion_gap_albumin_corrected',
+  label: 'Anion gap corrected for albumin',
+  short: 'AG corr',
+  unit: 'mmol/L',
+  decimals: 0,
+  category: 'acid-base',
+  formula: '{AG} + 2.5 × (4.0 − {albumin})',
+  source: SOURCES['figge-1998'],
+  anchors: ['albumin'],
+  compute(c) {
+    const ag = c.derived('anion_gap', 'AG');
+    const albumin = c.field('albumin', 'albumin');
+    if (!ag || !albumin) return c.missing([ag, c.lacking('anion_gap')], [albumin, 'albumin']);
+    return c.value(anionGapAlbuminCorrected(ag.value, albumin.value), [ag, albumin]);
+  },
+});
+
+export const deltaRatioDef = defineDerived({
+  id: 'delta_ratio',
+  label: 'Delta ratio',
+  short: 'Δ ratio',
+  unit: '',
+  decimals: 1,
+  category: 'acid-base',
+  formula: '({AG} − 12) ÷ (24 − {HCO3})',
+  source: SOURCES['rastegar-2007'],
+  anchors: ['na', 'cl'],
+  compute(c) {
+    const ag = c.derived('anion_gap_albumin_corrected', 'AG') ?? c.derived('anion_gap', 'AG');
+    const hco3 = bicarbonate(c);
+    if (!ag || !hco3) return c.missing([ag, c.lacking('anion_gap')], [hco3, 'hco3']);
+    if (hco3.value >= 24) return { kind: 'na', reason: 'HCO3 is not below 24 mmol/L' };
+    if (ag.value <= 12) return { kind: 'na', reason: 'the anion gap is not raised' };
+    return c.value(deltaRatio(ag.value, hco3.value), [ag, hco3]);
+  },
+});
+
+export const paco2Expected = defineDerived({
+  id: 'paco2_expected',
+  label: 'Expected PaCO2 for the metabolic disorder',
+  short: 'PaCO2 expected',
+  unit: 'mmHg',
+  decimals: 0,
+  category: 'acid-base',
+  formula: '1.5 × {HCO3} + 8 ± 2',
+  source: `${SOURCES['winters-1967']} (acidosis); ${SOURCES['berend-2014']} (alkalosis)`,
+  anchors: ['ph', 'hco3'],
+  compute(c) {
+    const cls = classification(c);
+    const hco3 = c.field('hco3', 'HCO3');
+    if (!cls || !hco3) return c.missing([hco3, 'hco3']);
+    if (cls.primary === 'metabolic-acidosis') {
+      const r = expectedPaco2MetabolicAcidosis(hco3.value);
+      return r ? c.value(r.centre, [hco3], { range: r, notes: ["Winters' formula"] }) : c.value(null, []);
+    }
+    if (cls.primary === 'metabolic-alkalosis') {
+      const r = expectedPaco2MetabolicAlkalosis(hco3.value);
+      return r ? c.value(r.centre, [hco3], { range: r, formula: '40 + 0.7 × ({HCO3} − 24) ± 2' }) : c.value(null, []);
+    }
+    return { kind: 'na', reason: 'the primary disorder is not metabolic' };
+  },
+});
+
+function respiratoryExpected(chronicity: 'acute' | 'chronic') {
+  return defineDerived({
+    id: `hco3_expected_${chronicity}`,
+    label: `Expected HCO3 if the respiratory disorder is ${chronicity}`,
+    short: `HCO3 expected (${chronicity})`,
+    unit: 'mmol/L',
+    decimals: 0,
+    category: 'acid-base',
+    formula: chronicity === 'acute' ? '24 + (+1 acidosis | −2 alkalosis) × ({PaCO2} − 40) ÷ 10 ± 2' : '24 + (+3.5…+5 acidosis | −4…−5 alkalosis) × ({PaCO2} − 40) ÷ 10 ± 2',
+    source: `${SOURCES['narins-emmett-1980']}; ${SOURCES['adrogue-madias-2010']}`,
+    anchors: ['ph', 'paco2'],
+    compute(c) {
+      const cls = classification(c);
+      const paco2 = c.field('paco2', 'PaCO2');
+      if (!cls || !paco2) return c.missing([paco2, 'pco2']);
+      if (cls.primary !== 'respiratory-acidosis' && cls.primary !== 'respiratory-alkalosis') return { kind: 'na', reason: 'the primary disorder is not respiratory' };
+      const r = expectedHco3Respiratory(paco2.value, chronicity);
+      return r ? c.value((r.low + r.high) / 2, [paco2], { range: r, notes: ['span of published coefficients, ± 2 mmol/L'] }) : c.value(null, []);
+    },
+  });
+}
+
+export const hco3ExpectedAcute = respiratoryExpected('acute');
+export const hco3ExpectedChronic = respiratoryExpected('chronic');

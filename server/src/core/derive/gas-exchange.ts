@@ -1,0 +1,230 @@
+/** Derived values of gas exchange: alveolar PO2, A–a gradient, oxygenation ratios and indices. */
+import {
+  OSI_MAX_SPO2_PERCENT,
+  SOURCES,
+  aaGradient,
+  aaGradientUpperNormal,
+  alveolarPo2Full,
+  alveolarPo2Simplified,
+  arterialAlveolarRatio,
+  oxygenSaturationIndex,
+  oxygenationIndex,
+  pfRatio,
+  pfRatioAltitudeAdjusted,
+  roxIndex,
+  sfRatio,
+} from '../physiology';
+import { defineDerived, type Term } from './context';
+import { SEA_LEVEL_MMHG } from './atmosphere';
+
+/** PaO2 above alveolar PO2 by more than this (mmHg) is impossible rather than rounding. */
+export const ALVEOLAR_ROUNDING_MMHG = 5;
+
+export const pao2Alveolar = defineDerived({
+  id: 'pao2_alveolar',
+  label: 'Alveolar PO2',
+  short: 'PAO2',
+  unit: 'mmHg',
+  decimals: 0,
+  category: 'oxygenation',
+  formula: '{PiO2} − {PaCO2} ÷ {RQ}',
+  source: SOURCES['alveolar-gas-equation'],
+  anchors: ['pao2', 'paco2'],
+  compute(c) {
+    const pio2 = c.derived('pio2', 'PiO2');
+    const paco2 = c.field('paco2', 'PaCO2');
+    if (!pio2 || !paco2) return c.missing([pio2, c.lacking('pio2')], [paco2, 'pco2']);
+    const rq: Term = { name: 'RQ', value: c.settings.respiratoryQuotient, unit: '', decimals: 2, origin: { kind: 'default', description: 'respiratory quotient (setting pneumark.respiratoryQuotient)' } };
+    if (c.settings.alveolarEquation === 'full') {
+      const fio2 = c.fio2();
+      if (!fio2) return c.missing([fio2, c.fio2Need()]);
+      return c.value(alveolarPo2Full(fio2.value, pio2.value, paco2.value, rq.value), [pio2, paco2, fio2, rq], {
+        formula: '{PiO2} − {PaCO2} × ({FiO2} + (1 − {FiO2}) ÷ {RQ})',
+        notes: ['full alveolar gas equation (setting)'],
+      });
+    }
+    return c.value(alveolarPo2Simplified(pio2.value, paco2.value, rq.value), [pio2, paco2, rq], { notes: ['simplified alveolar gas equation'] });
+  },
+});
+
+export const aaGradientDef = defineDerived({
+  id: 'aa_gradient',
+  label: 'A–a gradient',
+  short: 'A–a',
+  unit: 'mmHg',
+  decimals: 0,
+  category: 'oxygenation',
+  formula: '{PAO2} − {PaO2}',
+  source: SOURCES['alveolar-gas-equation'],
+  anchors: ['pao2'],
+  compute(c) {
+    const pA = c.derived('pao2_alveolar', 'PAO2');
+    const pa = c.field('pao2', 'PaO2');
+    if (!pA || !pa) return c.missing([pa, 'po2'], [pA, c.lacking('pao2_alveolar')]);
+    const g = aaGradient(pA.value, pa.value);
+    if (g === null) return c.value(null, []);
+    if (g < -ALVEOLAR_ROUNDING_MMHG) return { kind: 'na', reason: `PaO2 ${Math.round(pa.value)} mmHg is above the alveolar PO2 ${Math.round(pA.value)} mmHg that the stated FiO2 and pressure allow (see PN401)` };
+    if (g < 0) return c.value(0, [pA, pa], { notes: ['PaO2 within rounding of the alveolar PO2: gradient shown as 0'] });
+    return c.value(g, [pA, pa]);
+  },
+});
+
+const AGE_RULE_TEXT = {
+  'age-over-4-plus-4': '{age} ÷ 4 + 4',
+  'age-plus-10-over-4': '({age} + 10) ÷ 4',
+  mellemgaard: '2.5 + 0.21 × {age}',
+} as const;
+
+export const aaGradientUpperNormalDef = defineDerived({
+  id: 'aa_gradient_upper_normal',
+  label: 'A–a gradient, upper normal for age',
+  short: 'A–a normal ≤',
+  unit: 'mmHg',
+  decimals: 0,
+  category: 'oxygenation',
+  formula: AGE_RULE_TEXT['age-over-4-plus-4'],
+  source: `${SOURCES['aa-gradient-age-rules']} Alternative: ${SOURCES['mellemgaard-1966']}`,
+  anchors: ['pao2'],
+  compute(c) {
+    const age = c.field('age', 'age');
+    if (!age) return c.missing([age, 'age (patient line)']);
+    return c.value(aaGradientUpperNormal(age.value, c.settings.aaGradientRule), [age], { formula: AGE_RULE_TEXT[c.settings.aaGradientRule], notes: ['breathing air at sea level; the gradient widens on oxygen'] });
+  },
+});
+
+export const aToARatio = defineDerived({
+  id: 'a_to_A_ratio',
+  label: 'a/A ratio',
+  short: 'a/A',
+  unit: '',
+  decimals: 2,
+  category: 'oxygenation',
+  formula: '{PaO2} ÷ {PAO2}',
+  source: SOURCES['gilbert-keighley-1974'],
+  anchors: ['pao2'],
+  compute(c) {
+    const pa = c.field('pao2', 'PaO2');
+    const pA = c.derived('pao2_alveolar', 'PAO2');
+    if (!pa || !pA) return c.missing([pa, 'po2'], [pA, c.lacking('pao2_alveolar')]);
+    if (pa.value > pA.value + ALVEOLAR_ROUNDING_MMHG) return { kind: 'na', reason: 'PaO2 is above the alveolar PO2 (see PN401)' };
+    return c.value(arterialAlveolarRatio(pa.value, pA.value), [pa, pA]);
+  },
+});
+
+export const pfRatioDef = defineDerived({
+  id: 'pf_ratio',
+  label: 'P/F ratio',
+  short: 'P/F',
+  unit: 'mmHg',
+  decimals: 0,
+  category: 'oxygenation',
+  formula: '{PaO2} ÷ {FiO2}',
+  source: SOURCES['berlin-2012'],
+  anchors: ['pao2'],
+  compute(c) {
+    const pa = c.field('pao2', 'PaO2');
+    const fio2 = c.fio2();
+    if (!pa || !fio2) return c.missing([pa, 'po2'], [fio2, c.fio2Need()]);
+    return c.value(pfRatio(pa.value, fio2.value), [pa, fio2]);
+  },
+});
+
+export const pfRatioAltitude = defineDerived({
+  id: 'pf_ratio_altitude_adjusted',
+  label: 'P/F ratio adjusted for altitude',
+  short: 'P/F × PB/760',
+  unit: 'mmHg',
+  decimals: 0,
+  category: 'oxygenation',
+  formula: '{P/F} × {PB} ÷ 760',
+  source: SOURCES['berlin-2012'],
+  anchors: ['pao2'],
+  compute(c) {
+    const pf = c.derived('pf_ratio', 'P/F');
+    const pb = c.derived('barometric', 'PB');
+    if (!pf || !pb) return c.missing([pf, c.lacking('pf_ratio')]);
+    if (pb.value >= SEA_LEVEL_MMHG - 20) return { kind: 'na', reason: 'barometric pressure is close to sea level' };
+    return c.value(pfRatioAltitudeAdjusted(pf.value, pb.value), [pf, pb]);
+  },
+});
+
+export const sfRatioDef = defineDerived({
+  id: 'sf_ratio',
+  label: 'S/F ratio',
+  short: 'S/F',
+  unit: '',
+  decimals: 0,
+  category: 'oxygenation',
+  formula: '{SpO2} ÷ {FiO2}',
+  source: SOURCES['rice-2007'],
+  anchors: ['spo2'],
+  compute(c) {
+    const spo2 = c.field('spo2', 'SpO2');
+    const fio2 = c.fio2();
+    if (!spo2 || !fio2) return c.missing([spo2, 'spo2'], [fio2, c.fio2Need()]);
+    const notes = spo2.value > OSI_MAX_SPO2_PERCENT ? ['SpO2 above 97 %: the S/F ratio no longer tracks P/F (Rice 2007)'] : [];
+    return c.value(sfRatio(spo2.value, fio2.value), [spo2, fio2], { notes });
+  },
+});
+
+export const roxIndexDef = defineDerived({
+  id: 'rox_index',
+  label: 'ROX index',
+  short: 'ROX',
+  unit: '',
+  decimals: 2,
+  category: 'oxygenation',
+  formula: '({SpO2} ÷ {FiO2}) ÷ {RR}',
+  source: `${SOURCES['roca-2016']}; ${SOURCES['roca-2019']}`,
+  anchors: ['spo2', 'rr'],
+  compute(c) {
+    const device = c.word('device');
+    if (device?.word !== 'hfnc') return { kind: 'na', reason: 'the ROX index was validated on high-flow nasal oxygen' };
+    const spo2 = c.field('spo2', 'SpO2');
+    const fio2 = c.fio2();
+    const rr: Term | null = c.field('rr', 'RR');
+    if (!spo2 || !fio2 || !rr) return c.missing([spo2, 'spo2'], [fio2, 'fio2'], [rr, 'rr']);
+    return c.value(roxIndex(spo2.value, fio2.value, rr.value), [spo2, fio2, rr], { notes: ['at 12 h of high flow, ≥ 4.88 was associated with success and < 3.85 with failure (Roca 2019)'] });
+  },
+});
+
+export const oxygenationIndexDef = defineDerived({
+  id: 'oxygenation_index',
+  label: 'Oxygenation index',
+  short: 'OI',
+  unit: '',
+  decimals: 1,
+  category: 'oxygenation',
+  formula: '{FiO2} × {MAP} × 100 ÷ {PaO2}',
+  source: `${SOURCES['ortiz-1987']}; ${SOURCES['palicc-2015']}`,
+  anchors: ['pao2', 'mean_airway_pressure'],
+  compute(c) {
+    const fio2 = c.fio2();
+    const map = c.field('mean_airway_pressure', 'MAP');
+    const pa = c.field('pao2', 'PaO2');
+    if (!map && !c.statedHere('mean_airway_pressure')) return { kind: 'na', reason: 'needs a mean airway pressure (map on the vent line)' };
+    if (!fio2 || !map || !pa) return c.missing([fio2, 'fio2'], [map, 'map'], [pa, 'po2']);
+    return c.value(oxygenationIndex(fio2.value, map.value, pa.value), [fio2, map, pa]);
+  },
+});
+
+export const oxygenSaturationIndexDef = defineDerived({
+  id: 'oxygen_saturation_index',
+  label: 'Oxygen saturation index',
+  short: 'OSI',
+  unit: '',
+  decimals: 1,
+  category: 'oxygenation',
+  formula: '{FiO2} × {MAP} × 100 ÷ {SpO2}',
+  source: SOURCES['palicc-2015'],
+  anchors: ['spo2', 'mean_airway_pressure'],
+  compute(c) {
+    const fio2 = c.fio2();
+    const map = c.field('mean_airway_pressure', 'MAP');
+    const spo2 = c.field('spo2', 'SpO2');
+    if (!map) return { kind: 'na', reason: 'needs a mean airway pressure (map on the vent line)' };
+    if (!fio2 || !spo2) return c.missing([fio2, 'fio2'], [spo2, 'spo2']);
+    if (spo2.value > OSI_MAX_SPO2_PERCENT) return { kind: 'na', reason: 'valid only for SpO2 ≤ 97 %' };
+    return c.value(oxygenSaturationIndex(fio2.value, map.value, spo2.value), [fio2, map, spo2]);
+  },
+});

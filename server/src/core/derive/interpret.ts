@@ -1,0 +1,163 @@
+/**
+ * Interpretations: the assessment lines a clinician would write, each phrased "consistent
+ * with ...", built only from values and derived values of this timepoint. Thresholds are
+ * settings (hypoxaemia PaO2 < 60 mmHg and hypercapnia PaCO2 > 50 mmHg by default, common
+ * practice). Grades and cut-offs not taken from settings are named below with their source.
+ */
+import { BERLIN_BAND_SEVERITY, berlinOxygenationBand, type AcidBaseClassification, type AcidBaseDisorder } from '../physiology';
+import type { Settings } from '../settings';
+import { formatNumber } from '../util/format';
+import { classification } from './acid-base';
+import type { DeriveContext } from './context';
+import type { Interpretation } from './model';
+
+/** PaO2 below this (mmHg) grades hypoxaemia as severe (common practice, no source). */
+export const SEVERE_HYPOXAEMIA_MMHG = 40;
+/** PaO2 below this (mmHg) is below the usual range for adults breathing air (common practice). */
+export const LOW_NORMAL_PAO2_MMHG = 80;
+/** Upper normal PaCO2 (mmHg) (common practice). */
+export const UPPER_NORMAL_PACO2_MMHG = 45;
+/** PiO2 below this (mmHg) counts as low inspired oxygen: sea-level air gives about 150 (our convention). */
+export const LOW_PIO2_MMHG = 140;
+/** Upper normal A–a gradient (mmHg) used when the age is unknown (common practice, generous). */
+export const AA_UPPER_NORMAL_NO_AGE_MMHG = 20;
+/** PEEP or CPAP (cmH2O) from which the Berlin oxygenation bands apply. */
+export const BERLIN_MIN_PEEP_CMH2O = 5;
+
+const n0 = (v: number) => formatNumber(v, 0);
+
+const DISORDER_WORDS: Readonly<Record<AcidBaseDisorder, string>> = {
+  'metabolic-acidosis': 'metabolic acidosis',
+  'metabolic-alkalosis': 'metabolic alkalosis',
+  'respiratory-acidosis': 'respiratory acidosis',
+  'respiratory-alkalosis': 'respiratory alkalosis',
+};
+
+export function interpret(c: DeriveContext, settings: Settings): Interpretation[] {
+  const out: Interpretation[] = [];
+  const pao2 = c.field('pao2', 'PaO2');
+  const paco2 = c.field('paco2', 'PaCO2');
+  const gasHere = c.statedHere('pao2') || c.statedHere('paco2') || c.statedHere('ph');
+  if (!gasHere) return out;
+  const line = (pao2 ?? paco2)?.origin.kind === 'here' ? ((pao2 ?? paco2)!.origin as { line: number }).line : null;
+  const push = (topic: Interpretation['topic'], text: string, basis: string[], notable = true) => out.push({ topic, text, basis, line, notable });
+
+  const hypoxaemic = pao2 !== null && pao2.value < settings.hypoxaemiaBelowMmhg;
+  const hypercapnic = paco2 !== null && paco2.value > settings.hypercapniaAboveMmhg;
+  const fio2 = c.fio2();
+  const onOxygen = fio2 !== null && fio2.value > 0.21 + 1e-9;
+
+  // Oxygenation
+  if (pao2) {
+    const pf = c.derivedValue('pf_ratio');
+    if (hypoxaemic) {
+      const grade = pao2.value < SEVERE_HYPOXAEMIA_MMHG ? 'severe' : 'moderate';
+      push('oxygenation', `PaO2 ${n0(pao2.value)} mmHg: consistent with ${grade} hypoxaemia (below ${n0(settings.hypoxaemiaBelowMmhg)} mmHg${grade === 'severe' ? `, and below ${SEVERE_HYPOXAEMIA_MMHG}` : ''})${onOxygen ? ` despite FiO2 ${formatNumber(fio2.value, 2)}` : ''}.`, ['pao2']);
+    } else if (onOxygen && pf && pf.value <= 300) {
+      push('oxygenation', `PaO2 ${n0(pao2.value)} mmHg on FiO2 ${formatNumber(fio2.value, 2)} (P/F ${n0(pf.value)}): consistent with impaired oxygenation supported by oxygen.`, ['pao2', 'pf_ratio']);
+    } else if (pao2.value < LOW_NORMAL_PAO2_MMHG) {
+      push('oxygenation', `PaO2 ${n0(pao2.value)} mmHg: consistent with mildly reduced oxygenation, above the hypoxaemia threshold of ${n0(settings.hypoxaemiaBelowMmhg)} mmHg.`, ['pao2'], false);
+    } else {
+      push('oxygenation', `PaO2 ${n0(pao2.value)} mmHg${onOxygen ? ` on FiO2 ${formatNumber(fio2.value, 2)}` : ''}: consistent with adequate arterial oxygenation.`, ['pao2'], false);
+    }
+    // Berlin oxygenation band: only with PEEP or CPAP ≥ 5 cmH2O; an oxygenation band, never a diagnosis.
+    const peep = c.peepLike();
+    const adjusted = c.derivedValue('pf_ratio_altitude_adjusted');
+    const pfForBand = adjusted ?? pf;
+    if (pfForBand && peep && peep.value >= BERLIN_MIN_PEEP_CMH2O) {
+      const band = berlinOxygenationBand(pfForBand.value);
+      if (band) {
+        const words = band === 'pf-200-to-300' ? '200–300' : band === 'pf-100-to-200' ? '100–200' : '≤ 100';
+        push('oxygenation-band', `P/F ${n0(pfForBand.value)}${adjusted ? ' (adjusted for altitude)' : ''} with ${peep.name} ${n0(peep.value)} cmH2O: in the ${words} oxygenation band of the Berlin definition (the band called ${BERLIN_BAND_SEVERITY[band]} there) — an oxygenation band, not a diagnosis.`, [adjusted ? 'pf_ratio_altitude_adjusted' : 'pf_ratio', peep.fieldId ?? 'peep']);
+      }
+    }
+  }
+
+  // Ventilation
+  if (paco2) {
+    const v = paco2.value;
+    const text = v > settings.hypercapniaAboveMmhg
+      ? `consistent with hypercapnia (above ${n0(settings.hypercapniaAboveMmhg)} mmHg): ventilation is not clearing CO2`
+      : v > UPPER_NORMAL_PACO2_MMHG
+        ? `consistent with a mildly raised PaCO2, below the hypercapnia threshold of ${n0(settings.hypercapniaAboveMmhg)} mmHg`
+        : v < settings.hypocapniaBelowMmhg
+          ? `consistent with hypocapnia (below ${n0(settings.hypocapniaBelowMmhg)} mmHg): ventilation above metabolic need`
+          : 'consistent with normal ventilation';
+    push('ventilation', `PaCO2 ${n0(v)} mmHg: ${text}.`, ['paco2'], v > settings.hypercapniaAboveMmhg || v < settings.hypocapniaBelowMmhg);
+  }
+
+  // Respiratory failure
+  if (pao2 && paco2) {
+    if (hypoxaemic && hypercapnic) push('respiratory-failure', 'Consistent with type 2 (hypercapnic) respiratory failure: hypoxaemia with hypercapnia.', ['pao2', 'paco2']);
+    else if (hypoxaemic) push('respiratory-failure', 'Consistent with type 1 (hypoxaemic) respiratory failure: hypoxaemia with normal or low PaCO2.', ['pao2', 'paco2']);
+    else if (hypercapnic && onOxygen) push('respiratory-failure', `Consistent with type 2 (hypercapnic) respiratory failure, with PaO2 held up by supplemental oxygen (FiO2 ${formatNumber(fio2.value, 2)}).`, ['pao2', 'paco2', 'fio2']);
+    else if (hypercapnic) push('respiratory-failure', 'Hypercapnia without hypoxaemia: not consistent with respiratory failure by the PaO2 criterion.', ['pao2', 'paco2'], false);
+  }
+
+  // Mechanism of hypoxaemia
+  if (hypoxaemic) out.push(...mechanism(c, settings, line));
+
+  // Acid–base
+  const cls = classification(c);
+  if (cls && !cls.consistency.consistent) {
+    push('acid-base', `Acid–base not interpreted: the reported HCO3 differs from the ${formatNumber(cls.consistency.calculatedHco3MmolL, 1)} mmol/L that pH and PaCO2 give (see PN402).`, ['ph', 'paco2', 'hco3'], false);
+  } else if (cls) {
+    push('acid-base', acidBaseText(cls), ['ph', 'paco2', 'hco3'], cls.primary !== 'normal' || cls.additional.length > 0);
+  }
+  return out;
+}
+
+function mechanism(c: DeriveContext, settings: Settings, line: number | null): Interpretation[] {
+  const pio2 = c.derivedValue('pio2');
+  const gradient = c.derivedValue('aa_gradient');
+  const upper = c.derivedValue('aa_gradient_upper_normal');
+  const paco2 = c.field('paco2');
+  if (!pio2 || !gradient || !paco2) {
+    const need = !paco2 ? 'pco2' : c.fio2Need();
+    return [{ topic: 'hypoxaemia-mechanism', text: `Mechanism of hypoxaemia not assessed: add ${need} to get the A–a gradient.`, basis: [], line, notable: false }];
+  }
+  const limit = upper?.value ?? AA_UPPER_NORMAL_NO_AGE_MMHG;
+  const causes: string[] = [];
+  const basis = ['pio2', 'aa_gradient', 'paco2'];
+  if (pio2.value < LOW_PIO2_MMHG) causes.push(`low inspired oxygen (PiO2 ${n0(pio2.value)} mmHg)`);
+  if (paco2.value > settings.hypercapniaAboveMmhg) causes.push(`hypoventilation (PaCO2 ${n0(paco2.value)} mmHg)`);
+  const raised = gradient.value > limit;
+  if (raised) causes.push(`a raised A–a gradient (${n0(gradient.value)} mmHg, above ${n0(limit)}): V/Q mismatch, shunt or a diffusion limit`);
+  const normalGradient = raised ? '' : ` The A–a gradient (${n0(gradient.value)} mmHg) is within the ${upper ? 'age-based ' : ''}normal of ${n0(limit)}${upper ? '' : ' (age unknown)'}.`;
+  const onOxygen = (c.fio2()?.value ?? 0.21) > 0.21 + 1e-9;
+  const caveat = onOxygen ? ' On supplemental oxygen the normal gradient is wider than the air-based limit.' : '';
+  if (causes.length === 0) return [{ topic: 'hypoxaemia-mechanism', text: `Hypoxaemia without a low PiO2, hypercapnia or a raised A–a gradient: recheck the inputs.${normalGradient}${caveat}`, basis, line, notable: true }];
+  const text = causes.length === 1 ? `Hypoxaemia consistent with ${causes[0]}.` : `Hypoxaemia consistent with a mix of ${causes.slice(0, -1).join(', ')} and ${causes[causes.length - 1]}.`;
+  return [{ topic: 'hypoxaemia-mechanism', text: `${text}${normalGradient}${caveat}`, basis, line, notable: true }];
+}
+
+function acidBaseText(cls: AcidBaseClassification): string {
+  const parts: string[] = [];
+  const gapKind = cls.anionGap?.metabolicAcidosisKind;
+  const gapWords = gapKind === 'high-anion-gap' ? ' with a high anion gap' : gapKind === 'normal-anion-gap' ? ' with a normal anion gap' : gapKind === 'mixed-anion-gap' ? ' with high and normal anion-gap components' : '';
+  switch (cls.primary) {
+    case 'normal': parts.push('Consistent with normal acid–base balance'); break;
+    case 'undetermined': parts.push('Acid–base reading undetermined: the pH does not follow the PaCO2 and HCO3'); break;
+    case 'mixed-acidosis': parts.push('Consistent with a mixed metabolic and respiratory acidosis'); break;
+    case 'mixed-alkalosis': parts.push('Consistent with a mixed metabolic and respiratory alkalosis'); break;
+    default: {
+      const chron = cls.respiratoryChronicity;
+      const timing = chron === 'acute' ? 'acute ' : chron === 'chronic' ? 'chronic ' : '';
+      parts.push(`Consistent with ${cls.fullyCompensated ? 'a fully compensated ' : ''}${timing}${DISORDER_WORDS[cls.primary]}${cls.primary === 'metabolic-acidosis' ? gapWords : ''}`);
+      if (chron === 'intermediate') parts.push('between the acute and chronic ranges (evolving, or acute on chronic)');
+      if (chron === 'acute-or-chronic') parts.push('too small a change to tell acute from chronic');
+    }
+  }
+  const exp = cls.expected;
+  if (exp?.kind === 'respiratory-response') {
+    const range = `${n0(exp.range.low)}–${n0(exp.range.high)} mmHg`;
+    if (cls.compensation === 'appropriate') parts.push(`with the expected respiratory response (PaCO2 ${range})`);
+    else if (cls.compensation === 'insufficient') parts.push(`PaCO2 ${n0(exp.observed)} is above the expected ${range}: suspect an added respiratory acidosis`);
+    else if (cls.compensation === 'excessive') parts.push(`PaCO2 ${n0(exp.observed)} is below the expected ${range}: suspect an added respiratory alkalosis`);
+  } else if (exp?.kind === 'metabolic-response' && cls.compensation !== 'appropriate' && cls.compensation !== 'not-applicable') {
+    parts.push(`HCO3 ${formatNumber(exp.observed, 1)} is outside the expected ${n0(exp.acute.low)}–${n0(exp.acute.high)} (acute) and ${n0(exp.chronic.low)}–${n0(exp.chronic.high)} (chronic) mmol/L: suspect an added metabolic disorder`);
+  }
+  const extra = cls.additional.filter((d) => d !== cls.primary);
+  if (extra.length > 0) parts.push(`suspected additional ${extra.map((d) => DISORDER_WORDS[d]).join(' and ')}`);
+  return `${parts.join('; ')}.`;
+}

@@ -1,0 +1,195 @@
+/** Derived values of ventilation and respiratory mechanics. */
+import {
+  SOURCES,
+  airwayResistance,
+  complianceDynamic,
+  complianceStatic,
+  drivingPressure,
+  mechanicalPowerSimplified,
+  minuteVentilationLPerMin,
+  predictedBodyWeightKg,
+  ventilatoryRatio,
+  vtPerKgPbw,
+} from '../physiology';
+import { defineDerived } from './context';
+
+export const minuteVentilation = defineDerived({
+  id: 'minute_ventilation',
+  label: 'Minute ventilation',
+  short: 'VE',
+  unit: 'L/min',
+  decimals: 1,
+  category: 'mechanics',
+  formula: '{VT} × {RR} ÷ 1000',
+  source: SOURCES['respiratory-mechanics'],
+  anchors: ['vt', 'vent_rate', 'rr'],
+  compute(c) {
+    const vt = c.field('vt', 'VT');
+    const rr = c.respiratoryRate();
+    if (!vt) return { kind: 'na', reason: 'needs a tidal volume' };
+    if (!rr) return c.missing([rr, 'rr']);
+    return c.value(minuteVentilationLPerMin(vt.value, rr.value), [vt, rr]);
+  },
+});
+
+export const pbw = defineDerived({
+  id: 'predicted_body_weight',
+  label: 'Predicted body weight',
+  short: 'PBW',
+  unit: 'kg',
+  decimals: 1,
+  category: 'mechanics',
+  formula: '{base} + 0.91 × ({height} − 152.4)',
+  source: SOURCES['ardsnet-2000'],
+  anchors: ['vt', 'height'],
+  compute(c) {
+    const height = c.field('height', 'height');
+    const sex = c.word('sex');
+    if (!height || !sex) return c.missing([height, 'height (patient line)'], [sex, 'sex (patient line)']);
+    const male = sex.word === 'male';
+    const base = { name: 'base', value: male ? 50 : 45.5, unit: 'kg', decimals: 1, origin: sex.input.origin, note: male ? 'male' : 'female' };
+    const notes = height.value < 152.4 ? ['below 152.4 cm the equation was not validated (short adults, children)'] : [];
+    return c.value(predictedBodyWeightKg(height.value, male ? 'male' : 'female'), [base, height], { notes });
+  },
+});
+
+export const vtPerKg = defineDerived({
+  id: 'vt_per_kg_pbw',
+  label: 'Tidal volume per kg predicted body weight',
+  short: 'VT/PBW',
+  unit: 'mL/kg',
+  decimals: 1,
+  category: 'mechanics',
+  formula: '{VT} ÷ {PBW}',
+  source: SOURCES['ardsnet-2000'],
+  anchors: ['vt'],
+  compute(c) {
+    const vt = c.field('vt', 'VT');
+    const p = c.derived('predicted_body_weight', 'PBW');
+    if (!vt || !p) return c.missing([vt, 'vt'], [p, c.lacking('predicted_body_weight')]);
+    return c.value(vtPerKgPbw(vt.value, p.value), [vt, p], { notes: ['lung-protective target 6 mL/kg (4–8) in the ARDS Network protocol'] });
+  },
+});
+
+export const drivingPressureDef = defineDerived({
+  id: 'driving_pressure',
+  label: 'Driving pressure',
+  short: 'ΔP',
+  unit: 'cmH2O',
+  decimals: 0,
+  category: 'mechanics',
+  formula: '{Pplat} − {PEEP}',
+  source: SOURCES['amato-2015'],
+  anchors: ['plateau'],
+  compute(c) {
+    const plat = c.field('plateau', 'Pplat');
+    const peep = c.field('peep', 'PEEP');
+    if (!plat) return { kind: 'na', reason: 'needs a plateau pressure (inspiratory hold)' };
+    if (!peep) return c.missing([peep, 'peep']);
+    return c.value(drivingPressure(plat.value, peep.value), [plat, peep]);
+  },
+});
+
+export const complianceStaticDef = defineDerived({
+  id: 'compliance_static',
+  label: 'Static compliance',
+  short: 'Cstat',
+  unit: 'mL/cmH2O',
+  decimals: 0,
+  category: 'mechanics',
+  formula: '{VT} ÷ ({Pplat} − {PEEP})',
+  source: SOURCES['respiratory-mechanics'],
+  anchors: ['plateau'],
+  compute(c) {
+    const vt = c.field('vt', 'VT');
+    const plat = c.field('plateau', 'Pplat');
+    const peep = c.field('peep', 'PEEP');
+    if (!plat) return { kind: 'na', reason: 'needs a plateau pressure' };
+    if (!vt || !peep) return c.missing([vt, 'vt'], [peep, 'peep']);
+    return c.value(complianceStatic(vt.value, plat.value, peep.value), [vt, plat, peep]);
+  },
+});
+
+export const complianceDynamicDef = defineDerived({
+  id: 'compliance_dynamic',
+  label: 'Dynamic compliance',
+  short: 'Cdyn',
+  unit: 'mL/cmH2O',
+  decimals: 0,
+  category: 'mechanics',
+  formula: '{VT} ÷ ({Ppeak} − {PEEP})',
+  source: SOURCES['respiratory-mechanics'],
+  anchors: ['peak'],
+  compute(c) {
+    const vt = c.field('vt', 'VT');
+    const peak = c.field('peak', 'Ppeak');
+    const peep = c.field('peep', 'PEEP');
+    if (!peak) return { kind: 'na', reason: 'needs a peak pressure' };
+    if (!vt || !peep) return c.missing([vt, 'vt'], [peep, 'peep']);
+    return c.value(complianceDynamic(vt.value, peak.value, peep.value), [vt, peak, peep]);
+  },
+});
+
+export const airwayResistanceDef = defineDerived({
+  id: 'airway_resistance',
+  label: 'Airway resistance',
+  short: 'Raw',
+  unit: 'cmH2O/L/s',
+  decimals: 1,
+  category: 'mechanics',
+  formula: '({Ppeak} − {Pplat}) ÷ ({flow} ÷ 60)',
+  source: SOURCES['respiratory-mechanics'],
+  anchors: ['peak', 'plateau'],
+  compute(c) {
+    const mode = c.word('mode');
+    if (mode && mode.word !== 'VC') return { kind: 'na', reason: 'holds only for constant-flow volume control (mode VC)' };
+    const peak = c.field('peak', 'Ppeak');
+    const plat = c.field('plateau', 'Pplat');
+    const flow = c.field('insp_flow', 'flow');
+    if (!peak || !plat) return { kind: 'na', reason: 'needs peak and plateau pressures' };
+    if (!flow) return c.missing([flow, 'flow (inspiratory flow, L/min)']);
+    return c.value(airwayResistance(peak.value, plat.value, flow.value), [peak, plat, flow]);
+  },
+});
+
+export const mechanicalPower = defineDerived({
+  id: 'mechanical_power',
+  label: 'Mechanical power (simplified)',
+  short: 'MP',
+  unit: 'J/min',
+  decimals: 1,
+  category: 'mechanics',
+  formula: '0.098 × {RR} × {VT} ÷ 1000 × ({Ppeak} − ({Pplat} − {PEEP}) ÷ 2)',
+  source: SOURCES['gattinoni-2016'],
+  anchors: ['peak', 'plateau'],
+  compute(c) {
+    const rr = c.respiratoryRate();
+    const vt = c.field('vt', 'VT');
+    const peak = c.field('peak', 'Ppeak');
+    const plat = c.field('plateau', 'Pplat');
+    const peep = c.field('peep', 'PEEP');
+    if (!peak || !plat) return { kind: 'na', reason: 'needs peak and plateau pressures' };
+    if (!rr || !vt || !peep) return c.missing([rr, 'rr'], [vt, 'vt'], [peep, 'peep']);
+    return c.value(mechanicalPowerSimplified(rr.value, vt.value, peak.value, plat.value, peep.value), [rr, vt, peak, plat, peep]);
+  },
+});
+
+export const ventilatoryRatioDef = defineDerived({
+  id: 'ventilatory_ratio',
+  label: 'Ventilatory ratio',
+  short: 'VR',
+  unit: '',
+  decimals: 2,
+  category: 'mechanics',
+  formula: '{VE} × 1000 × {PaCO2} ÷ ({PBW} × 100 × 37.5)',
+  source: `${SOURCES['sinha-2009']}; ${SOURCES['sinha-2019']}`,
+  anchors: ['paco2'],
+  compute(c) {
+    if (!c.field('vt') && !c.field('minute_volume')) return { kind: 'na', reason: 'needs ventilation (vt and rate, or measured ve)' };
+    const ve = c.field('minute_volume', 'VE') ?? c.derived('minute_ventilation', 'VE');
+    const paco2 = c.field('paco2', 'PaCO2');
+    const p = c.derived('predicted_body_weight', 'PBW');
+    if (!ve || !paco2 || !p) return c.missing([ve, c.lacking('minute_ventilation')], [paco2, 'pco2'], [p, c.lacking('predicted_body_weight')]);
+    return c.value(ventilatoryRatio(ve.value * 1000, paco2.value, p.value), [ve, paco2, p]);
+  },
+});

@@ -1,0 +1,89 @@
+/**
+ * Derived values: what the core computes from the values in force at a timepoint. Each one
+ * carries its value and unit, the formula in words, the formula with the numbers put in, every
+ * input with where it came from, and the published source.
+ */
+import type { Origin } from '../analysis/model';
+
+export type InputOrigin = Origin | { readonly kind: 'derived'; readonly id: string };
+
+/** Inlay-hint and display categories. */
+export type DerivedCategory = 'atmosphere' | 'oxygenation' | 'acid-base' | 'mechanics' | 'transport';
+
+/** One input of a formula. */
+export interface Term {
+  readonly name: string;
+  readonly value: number;
+  /** Display unit ('' for dimensionless). */
+  readonly unit: string;
+  readonly decimals: number;
+  readonly origin: InputOrigin;
+  /** Field id when the input is a stated value. */
+  readonly fieldId?: string;
+  /** A remark on how the input was chosen (e.g. "room air"). */
+  readonly note?: string;
+}
+
+export interface DerivedValue {
+  readonly id: string;
+  readonly label: string;
+  readonly short: string;
+  readonly category: DerivedCategory;
+  readonly value: number;
+  readonly unit: string;
+  readonly decimals: number;
+  /** For expected ranges: the span; `value` is then the centre. */
+  readonly range: { readonly low: number; readonly high: number } | null;
+  /** The formula in words, e.g. `PaO2 ÷ FiO2`. */
+  readonly formula: string;
+  /** The formula with the actual numbers, e.g. `71 ÷ 0.40 = 178`. */
+  readonly substituted: string;
+  readonly inputs: readonly Term[];
+  readonly source: string;
+  /** An estimate by a rough rule (e.g. FiO2 from a cannula's flow). */
+  readonly estimate: boolean;
+  readonly notes: readonly string[];
+  /** True when any input (directly or through another derived value) was carried forward. */
+  readonly usesCarried: boolean;
+  /** The line the value belongs to (its anchor input's line), for hints. */
+  readonly line: number | null;
+}
+
+/** A derived value that could not be computed, and what to add to get it. */
+export interface MissingValue {
+  readonly id: string;
+  readonly label: string;
+  /** Keys to add, as a user would write them. */
+  readonly needs: readonly string[];
+  readonly message: string;
+  readonly line: number | null;
+}
+
+/** A derived value whose formula does not apply here, and why. */
+export interface NotApplicable {
+  readonly id: string;
+  readonly label: string;
+  readonly reason: string;
+  readonly line: number | null;
+}
+
+export type InterpretationTopic = 'oxygenation' | 'oxygenation-band' | 'ventilation' | 'respiratory-failure' | 'hypoxaemia-mechanism' | 'acid-base';
+
+/** An assessment line, always phrased "consistent with ...". */
+export interface Interpretation {
+  readonly topic: InterpretationTopic;
+  readonly text: string;
+  /** Ids of the derived values and fields it rests on. */
+  readonly basis: readonly string[];
+  readonly line: number | null;
+  /** Abnormal, worth a diagnostic (a normal reading is shown but not reported). */
+  readonly notable: boolean;
+}
+
+export interface TimepointDerivation {
+  readonly timepoint: number;
+  readonly derived: readonly DerivedValue[];
+  readonly missing: readonly MissingValue[];
+  readonly notApplicable: readonly NotApplicable[];
+  readonly interpretations: readonly Interpretation[];
+}

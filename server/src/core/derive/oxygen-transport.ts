@@ -1,0 +1,66 @@
+/** Derived values of oxygen transport, and the low-flow FiO2 estimate. */
+import { SOURCES, arterialO2Content, fio2EstimateLowFlow, oxygenDelivery } from '../physiology';
+import { defineDerived, type Term } from './context';
+
+export const cao2 = defineDerived({
+  id: 'cao2',
+  label: 'Arterial oxygen content',
+  short: 'CaO2',
+  unit: 'mL/dL',
+  decimals: 1,
+  category: 'transport',
+  formula: '{Hüfner} × {Hb} × {SaO2} ÷ 100 + 0.003 × {PaO2}',
+  source: SOURCES['oxygen-content'],
+  anchors: ['hb', 'sao2'],
+  compute(c) {
+    const hb = c.field('hb', 'Hb');
+    const sat = c.field('sao2', 'SaO2') ?? c.field('spo2', 'SaO2');
+    const pa = c.field('pao2', 'PaO2');
+    if (!hb) return { kind: 'na', reason: 'needs a haemoglobin' };
+    if (!sat || !pa) return c.missing([sat, 'sao2'], [pa, 'po2']);
+    const hufner: Term = { name: 'Hüfner', value: c.settings.hufnerConstant, unit: 'mL/g', decimals: 2, origin: { kind: 'default', description: 'Hüfner constant (setting pneumark.hufnerConstant)' } };
+    const notes = sat.fieldId === 'spo2' ? ['SpO2 used in place of SaO2'] : [];
+    return c.value(arterialO2Content(hb.value, sat.value / 100, pa.value, hufner.value), [hufner, hb, sat, pa], { notes });
+  },
+});
+
+export const do2 = defineDerived({
+  id: 'do2',
+  label: 'Oxygen delivery',
+  short: 'DO2',
+  unit: 'mL/min',
+  decimals: 0,
+  category: 'transport',
+  formula: '{CO} × {CaO2} × 10',
+  source: SOURCES['oxygen-content'],
+  anchors: ['cardiac_output'],
+  compute(c) {
+    const co = c.field('cardiac_output', 'CO');
+    const content = c.derived('cao2', 'CaO2');
+    if (!co) return { kind: 'na', reason: 'needs a cardiac output (co on the vitals line)' };
+    if (!content) return c.missing([content, c.lacking('cao2')]);
+    return c.value(oxygenDelivery(co.value, content.value), [co, content]);
+  },
+});
+
+export const fio2Estimated = defineDerived({
+  id: 'fio2_estimated',
+  label: 'FiO2 estimated from a low-flow device',
+  short: 'FiO2 est',
+  unit: '',
+  decimals: 2,
+  category: 'oxygenation',
+  formula: '0.21 + 0.04 × {flow}',
+  source: `${SOURCES['nasal-cannula-fio2']}; ${SOURCES['simple-mask-fio2']}`,
+  anchors: ['device', 'o2_flow'],
+  compute(c) {
+    const device = c.word('device');
+    if (!device || (device.word !== 'cannula' && device.word !== 'mask')) return { kind: 'na', reason: 'only for nasal cannula and simple mask' };
+    if (c.field('fio2')) return { kind: 'na', reason: 'an FiO2 is stated' };
+    const flow = c.field('o2_flow', 'flow');
+    if (!flow) return c.missing([flow, 'flow']);
+    const value = fio2EstimateLowFlow(device.word, flow.value);
+    const formula = device.word === 'cannula' ? '0.21 + 0.04 × {flow}' : '0.35 + 0.04 × ({flow} − 5)';
+    return c.value(value, [flow], { estimate: true, formula, notes: ['a rough estimate: the true FiO2 depends on breathing pattern; not used for P/F or the A–a gradient'] });
+  },
+});
