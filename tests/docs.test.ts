@@ -3,17 +3,18 @@ import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { renderCheckDocs } from '../server/src/core/checks/docs';
 import { CHECKS, docAnchor } from '../server/src/core/checks/registry';
-import { FIELD_TABLE_START, withFieldTable } from '../server/src/core/fields/docs';
+import { FIELD_TABLE_START, withGeneratedTables } from '../server/src/core/fields/docs';
 
 describe('check documentation', () => {
   it('is up to date with the registry (run `npm run docs` after changing a check)', () => {
     expect(readFileSync('docs/checks.md', 'utf8')).toBe(renderCheckDocs());
   });
 
-  it('grammar/README.md carries the current table of sections, keys and units', () => {
+  it('grammar/README.md carries the current tables of keys and units, and of derived values', () => {
     const doc = readFileSync('grammar/README.md', 'utf8');
     expect(doc).toContain(FIELD_TABLE_START);
-    expect(withFieldTable(doc)).toBe(doc);
+    expect(doc).toContain('<!-- derived:start');
+    expect(withGeneratedTables(doc)).toBe(doc);
   });
 
   it('has a section per check at its anchor', () => {

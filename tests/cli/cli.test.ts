@@ -125,6 +125,28 @@ describe('pneumark show', () => {
     expect(broken.out()).toMatch(/vitals {3}SpO2 104 % \(not used\)\n {6}✖ error PN306/);
   });
 
+  it('prints derived values, what is missing, and readings under each timepoint', () => {
+    const out = io();
+    run(['show', 'samples/icu-ventilated-lung-injury.pneu'], out);
+    const text = out.out();
+    expect(text).toMatch(/derived {2}.*P\/F 93 mmHg/);
+    expect(text).toMatch(/ΔP 19 cmH2O/);
+    expect(text).toMatch(/\* uses a value carried from an earlier timepoint/);
+    expect(text).toMatch(/missing {2}add spo2 to get OSI/);
+    expect(text).toMatch(/reading {2}P\/F 93 with PEEP 8 cmH2O: consistent with the ≤ 100 oxygenation band/);
+  });
+
+  it('puts derived values with formula, inputs and sources in the JSON', () => {
+    const out = io();
+    run(['check', '--format', 'json', 'samples/icu-ventilated-lung-injury.pneu'], out);
+    const parsed = JSON.parse(out.out()) as { files: { timepoints: { derived: { id: string; substituted: string; inputs: { origin: { kind: string } }[]; source: string }[]; readings: { text: string }[] }[] }[] };
+    const pf = parsed.files[0]!.timepoints[1]!.derived.find((d) => d.id === 'pf_ratio')!;
+    expect(pf.substituted).toBe('88 ÷ 0.60 = 147 mmHg');
+    expect(pf.inputs.map((i) => i.origin.kind)).toEqual(['here', 'here']);
+    expect(pf.source).toMatch(/Berlin/);
+    expect(parsed.files[0]!.timepoints[1]!.readings.length).toBeGreaterThan(0);
+  });
+
   it('uses colour on a terminal unless NO_COLOR is set', () => {
     const tty = io('', {});
     tty.stdout.isTTY = true;

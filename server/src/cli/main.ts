@@ -9,7 +9,7 @@ import { parseArgs } from 'node:util';
 import { z } from 'zod';
 import { checkNote } from '../core/check-note';
 import { renderCheckDocs } from '../core/checks/docs';
-import { withFieldTable } from '../core/fields/docs';
+import { withGeneratedTables } from '../core/fields/docs';
 import { colourWanted, paint } from './colour';
 import { listInputs, readNote } from './inputs';
 import { renderCheckJson, renderCheckText, type FileOutcome } from './render-check';
@@ -124,7 +124,7 @@ function docs(args: readonly string[], io: Io): number {
   const text = renderCheckDocs();
   if (typeof values.write === 'string') writeFileSync(values.write, text);
   else io.stdout.write(text);
-  if (typeof values.grammar === 'string') writeFileSync(values.grammar, withFieldTable(readFileSync(values.grammar, 'utf8')));
+  if (typeof values.grammar === 'string') writeFileSync(values.grammar, withGeneratedTables(readFileSync(values.grammar, 'utf8')));
   return 0;
 }
 

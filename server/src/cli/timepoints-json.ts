@@ -1,14 +1,32 @@
 /** The per-timepoint part of `check --format json`: values in force with units and origins. */
 import type { NoteResult } from '../core/check-note';
-import type { Origin } from '../core/analysis/model';
+import type { InputOrigin } from '../core/derive/model';
 import { displayUnit } from '../core/analysis/read-value';
 
 export interface JsonValue {
   readonly field: string;
   readonly value: number | string | readonly number[] | null;
   readonly unit: string | null;
-  readonly origin: { readonly kind: Origin['kind']; readonly line: number | null; readonly timepoint: number | null; readonly description: string | null };
+  readonly origin: JsonOrigin;
   readonly usable: boolean;
+}
+
+function originJson(origin: InputOrigin): JsonOrigin {
+  if (origin.kind === 'derived') return { kind: 'derived', line: null, timepoint: null, description: null, derived: origin.id };
+  return {
+    kind: origin.kind,
+    line: origin.kind === 'default' ? null : origin.line + 1,
+    timepoint: origin.kind === 'carried' ? origin.timepoint : null,
+    description: origin.kind === 'default' ? origin.description : null,
+  };
+}
+
+export interface JsonOrigin {
+  readonly kind: InputOrigin['kind'];
+  readonly line: number | null;
+  readonly timepoint: number | null;
+  readonly description: string | null;
+  readonly derived?: string;
 }
 
 export function timepointsJson(result: NoteResult): unknown[] {
@@ -23,13 +41,23 @@ export function timepointsJson(result: NoteResult): unknown[] {
       field: v.stated.fieldId,
       value: v.stated.word ?? v.stated.parts ?? v.stated.value,
       unit: v.stated.unit === null ? null : displayUnit(v.stated.unit),
-      origin: {
-        kind: v.origin.kind,
-        line: v.origin.kind === 'default' ? null : v.origin.line + 1,
-        timepoint: v.origin.kind === 'carried' ? v.origin.timepoint : null,
-        description: v.origin.kind === 'default' ? v.origin.description : null,
-      },
+      origin: originJson(v.origin),
       usable: v.stated.usable,
     })),
+    derived: (result.analysis.derivations[tp.index]?.derived ?? []).map((d) => ({
+      id: d.id,
+      value: d.value,
+      ...(d.range ? { low: d.range.low, high: d.range.high } : {}),
+      unit: d.unit,
+      formula: d.formula,
+      substituted: d.substituted,
+      estimate: d.estimate,
+      usesCarried: d.usesCarried,
+      inputs: d.inputs.map((t) => ({ name: t.name, value: t.value, unit: t.unit, origin: originJson(t.origin), ...(t.note ? { note: t.note } : {}) })),
+      notes: d.notes,
+      source: d.source,
+    })),
+    missing: (result.analysis.derivations[tp.index]?.missing ?? []).map((m) => ({ id: m.id, needs: m.needs, message: m.message })),
+    readings: (result.analysis.derivations[tp.index]?.interpretations ?? []).map((i) => ({ topic: i.topic, text: i.text, notable: i.notable })),
   }));
 }

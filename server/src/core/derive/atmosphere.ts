@@ -13,7 +13,7 @@ export const barometric = defineDerived({
   category: 'atmosphere',
   formula: '{PB}',
   source: `stated, or from altitude: ${SOURCES['west-1996']} (default model) or ${SOURCES['us-standard-atmosphere-1976']}`,
-  anchors: ['barometric', 'altitude'],
+  anchors: ['barometric', 'altitude', 'pao2'],
   compute(c) {
     const stated = c.field('barometric', 'PB');
     if (stated) return c.value(stated.value, [stated], { formula: 'PB as stated' });

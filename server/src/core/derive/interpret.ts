@@ -68,7 +68,7 @@ export function interpret(c: DeriveContext, settings: Settings): Interpretation[
       const band = berlinOxygenationBand(pfForBand.value);
       if (band) {
         const words = band === 'pf-200-to-300' ? '200–300' : band === 'pf-100-to-200' ? '100–200' : '≤ 100';
-        push('oxygenation-band', `P/F ${n0(pfForBand.value)}${adjusted ? ' (adjusted for altitude)' : ''} with ${peep.name} ${n0(peep.value)} cmH2O: in the ${words} oxygenation band of the Berlin definition (the band called ${BERLIN_BAND_SEVERITY[band]} there) — an oxygenation band, not a diagnosis.`, [adjusted ? 'pf_ratio_altitude_adjusted' : 'pf_ratio', peep.fieldId ?? 'peep']);
+        push('oxygenation-band', `P/F ${n0(pfForBand.value)}${adjusted ? ' (adjusted for altitude)' : ''} with ${peep.name} ${n0(peep.value)} cmH2O: consistent with the ${words} oxygenation band of the Berlin definition (the band called ${BERLIN_BAND_SEVERITY[band]} there) — an oxygenation band, not a diagnosis.`, [adjusted ? 'pf_ratio_altitude_adjusted' : 'pf_ratio', peep.fieldId ?? 'peep']);
       }
     }
   }
@@ -149,15 +149,18 @@ function acidBaseText(cls: AcidBaseClassification): string {
     }
   }
   const exp = cls.expected;
+  const named = new Set<AcidBaseDisorder>();
   if (exp?.kind === 'respiratory-response') {
     const range = `${n0(exp.range.low)}–${n0(exp.range.high)} mmHg`;
-    if (cls.compensation === 'appropriate') parts.push(`with the expected respiratory response (PaCO2 ${range})`);
-    else if (cls.compensation === 'insufficient') parts.push(`PaCO2 ${n0(exp.observed)} is above the expected ${range}: suspect an added respiratory acidosis`);
-    else if (cls.compensation === 'excessive') parts.push(`PaCO2 ${n0(exp.observed)} is below the expected ${range}: suspect an added respiratory alkalosis`);
+    if (cls.compensation === 'appropriate') parts[0] += `, with the expected respiratory response (PaCO2 ${range})`;
+    else if (exp.observed > exp.range.high) { parts.push(`PaCO2 ${n0(exp.observed)} is above the expected ${range}: suspect an added respiratory acidosis`); named.add('respiratory-acidosis'); }
+    else if (exp.observed < exp.range.low) { parts.push(`PaCO2 ${n0(exp.observed)} is below the expected ${range}: suspect an added respiratory alkalosis`); named.add('respiratory-alkalosis'); }
   } else if (exp?.kind === 'metabolic-response' && cls.compensation !== 'appropriate' && cls.compensation !== 'not-applicable') {
-    parts.push(`HCO3 ${formatNumber(exp.observed, 1)} is outside the expected ${n0(exp.acute.low)}–${n0(exp.acute.high)} (acute) and ${n0(exp.chronic.low)}–${n0(exp.chronic.high)} (chronic) mmol/L: suspect an added metabolic disorder`);
+    const added = cls.additional.find((d) => d === 'metabolic-acidosis' || d === 'metabolic-alkalosis');
+    parts.push(`HCO3 ${formatNumber(exp.observed, 1)} is outside the expected ${n0(exp.acute.low)}–${n0(exp.acute.high)} (acute) and ${n0(exp.chronic.low)}–${n0(exp.chronic.high)} (chronic) mmol/L: suspect an added ${added ? DISORDER_WORDS[added] : 'metabolic disorder'}`);
+    if (added) named.add(added);
   }
-  const extra = cls.additional.filter((d) => d !== cls.primary);
+  const extra = cls.additional.filter((d) => d !== cls.primary && !named.has(d));
   if (extra.length > 0) parts.push(`suspected additional ${extra.map((d) => DISORDER_WORDS[d]).join(' and ')}`);
   return `${parts.join('; ')}.`;
 }

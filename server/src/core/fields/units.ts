@@ -4,6 +4,8 @@
  * conversion happens only at the edges (parsing and display).
  */
 
+import { PA_PER_CMH2O, PA_PER_MMHG } from '../physiology/units';
+
 export type Dimension =
   | 'gas-pressure'
   | 'airway-pressure'
@@ -34,12 +36,9 @@ export interface UnitDef {
 }
 
 /** Definitions of the units (exact where the unit is defined exactly). */
-/** The conventional millimetre of mercury: 13.5951 g/cm³ × 9.80665 m/s² × 1 mm = 133.322387415 Pa. */
-export const PASCAL_PER_MMHG = 133.322387415;
-export const MMHG_PER_KPA = 1000 / PASCAL_PER_MMHG; // 7.50062
-/** The conventional centimetre of water: 98.0665 Pa. */
-export const MMHG_PER_CMH2O = 98.0665 / PASCAL_PER_MMHG; // 0.735559
-export const CMH2O_PER_MBAR = 1 / 0.980665; // 1.019716...
+/** Exact conversions from the definitions of the units (physiology/units.ts holds the constants). */
+const MMHG_PER_KPA_EXACT = 1000 / PA_PER_MMHG; // 7.50062
+const CMH2O_PER_MBAR = 100 / PA_PER_CMH2O; // 1.019716
 
 const linear = (factor: number) => ({
   toBase: (v: number) => v * factor,
@@ -59,7 +58,7 @@ function unit(
 /** Base units: mmHg, cmH2O, fraction, %, /min, °C, mL, L/min, g/dL, mmol/L, cm, kg, years, pH units. */
 export const UNITS: readonly UnitDef[] = [
   unit('mmHg', 'gas-pressure', 'mm[Hg]', linear(1), ['mm hg', 'mmhg', 'torr']),
-  unit('kPa', 'gas-pressure', 'kPa', linear(MMHG_PER_KPA), ['kpa']),
+  unit('kPa', 'gas-pressure', 'kPa', linear(MMHG_PER_KPA_EXACT), ['kpa']),
   unit('cmH2O', 'airway-pressure', 'cm[H2O]', linear(1), ['cmh2o', 'cm h2o', 'cmwater']),
   unit('mbar', 'airway-pressure', 'mbar', linear(CMH2O_PER_MBAR), ['hpa']),
   unit('fraction', 'fraction', '1', linear(1), []),

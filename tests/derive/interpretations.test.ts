@@ -1,0 +1,100 @@
+// Table-driven readings across every primary acid–base disorder, compensated and not, acute
+// and chronic, and mixed — at note level, as a user sees them. Gases are constructed to obey
+// Henderson–Hasselbalch (pH = 6.1 + log10(HCO3 / (0.0307 × PaCO2))) and placed on either side
+// of the published expected ranges named beside each row.
+import { describe, expect, it } from 'vitest';
+import { readings } from './helpers';
+
+const WINTERS = 'Albert MS, Dell RB, Winters RW. Ann Intern Med 1967;66:312–322 (from memory): PaCO2 = 1.5 × HCO3 + 8 ± 2';
+const ALKALOSIS_RULE = 'Berend K, de Vries APJ, Gans ROB. NEJM 2014;371:1434–1445 (from memory): PaCO2 = 40 + 0.7 × (HCO3 − 24) ± 2';
+const RESPIRATORY = 'Narins RG, Emmett M. Medicine 1980;59:161–187; Adrogué HJ, Madias NE. JASN 2010;21:920–923 (from memory): ΔHCO3 per 10 mmHg ΔPaCO2';
+const DELTA = 'Rastegar A. JASN 2007;18:2429–2431 (from memory): delta ratio bands';
+
+const rows: { name: string; gas: string; reading: RegExp; source: string }[] = [
+  { name: 'metabolic acidosis, compensated (HCO3 10 → PaCO2 21–25)', gas: 'abg 7.25/23/95/10', reading: /^Consistent with metabolic acidosis, with the expected respiratory response \(PaCO2 21–25 mmHg\)\.$/, source: WINTERS },
+  { name: 'metabolic acidosis with an added respiratory acidosis', gas: 'abg 7.07/35/95/10', reading: /metabolic acidosis; PaCO2 35 is above the expected 21–25 mmHg: suspect an added respiratory acidosis\.$/, source: WINTERS },
+  { name: 'metabolic acidosis with an added respiratory alkalosis', gas: 'abg 7.36/18/95/10', reading: /metabolic acidosis; PaCO2 18 is below the expected 21–25 mmHg: suspect an added respiratory alkalosis\.$/, source: WINTERS },
+  { name: 'metabolic alkalosis, compensated (HCO3 34 → PaCO2 45–49)', gas: 'abg 7.47/47/95/34', reading: /^Consistent with metabolic alkalosis, with the expected respiratory response \(PaCO2 45–49 mmHg\)\.$/, source: ALKALOSIS_RULE },
+  { name: 'acute respiratory acidosis (PaCO2 60, HCO3 26: +1 per 10)', gas: 'abg 7.25/60/70/26', reading: /^Consistent with acute respiratory acidosis\.$/, source: RESPIRATORY },
+  { name: 'chronic respiratory acidosis (PaCO2 60, HCO3 32: +3.5 to +5 per 10)', gas: 'abg 7.34/60/70/32', reading: /^Consistent with chronic respiratory acidosis\.$/, source: RESPIRATORY },
+  { name: 'acute respiratory alkalosis (PaCO2 25, HCO3 21.5: −2 per 10)', gas: 'abg 7.55/25/95/21.5', reading: /^Consistent with acute respiratory alkalosis\.$/, source: RESPIRATORY },
+  { name: 'chronic respiratory alkalosis, pH back in range', gas: 'abg 7.43/25/95/16.5', reading: /^Consistent with a fully compensated chronic respiratory alkalosis\.$/, source: RESPIRATORY },
+  { name: 'respiratory acidosis with HCO3 beyond the chronic range (PaCO2 80, HCO3 47)', gas: 'abg 7.38/80/60/47', reading: /respiratory acidosis; HCO3 47\.0 is outside the expected .* mmol\/L: suspect an added metabolic alkalosis\.$/, source: RESPIRATORY },
+  { name: 'metabolic alkalosis with PaCO2 above its expected range', gas: 'abg 7.44/60/70/39.5', reading: /metabolic alkalosis; PaCO2 60 is above the expected 49–53 mmHg: suspect an added respiratory acidosis\.$/, source: ALKALOSIS_RULE },
+  { name: 'mixed metabolic and respiratory acidosis', gas: 'abg 7.13/55/70/18', reading: /^Consistent with a mixed metabolic and respiratory acidosis\.$/, source: 'both components beyond their reference intervals (common practice, no source)' },
+  { name: 'normal gas', gas: 'abg 7.40/40/95/24.4', reading: /^Consistent with normal acid–base balance\.$/, source: 'reference intervals pH 7.35–7.45, PaCO2 35–45, HCO3 22–26 (common practice, no source)' },
+  { name: 'high-gap acidosis with a hidden metabolic alkalosis (delta ratio 3.3)', gas: 'abg 7.33/38/95/20\nlabs na 140, cl 95, hco3 20', reading: /metabolic acidosis with a high anion gap, with the expected respiratory response \(PaCO2 36–40 mmHg\); suspected additional metabolic alkalosis\.$/, source: DELTA },
+  { name: 'normal-gap acidosis (anion gap 10)', gas: 'abg 7.28/26/95/12\nlabs na 140, cl 118, hco3 12', reading: /^Consistent with metabolic acidosis with a normal anion gap, with the expected respiratory response/, source: 'anion gap = Na − (Cl + HCO3), normal about 12 (common practice, no source)' },
+];
+
+describe('acid–base readings', () => {
+  it.each(rows)('$name — $source', ({ gas, reading }) => {
+    expect(readings(`@ 08:00\noxygen room air\n${gas}`)['acid-base']).toMatch(reading);
+  });
+
+  it('does not interpret a gas whose pH, PaCO2 and HCO3 disagree', () => {
+    expect(readings('@ 08:00\nabg 7.40/40/95/15')['acid-base']).toMatch(/^Acid–base not interpreted: the reported HCO3 differs from the 24\.\d mmol\/L/);
+  });
+});
+
+describe('oxygenation, ventilation and respiratory failure', () => {
+  it('reads hypoventilation on air as type 2 failure with a normal gradient (common practice)', () => {
+    // Pure hypoventilation: PaCO2 70 → PAO2 = 150 − 70/0.8 ≈ 62; PaO2 55 → A–a ≈ 7 mmHg.
+    const r = readings('patient age 40 y\n@ 08:00\noxygen room air\nabg 7.20/70/55/27');
+    expect(r.oxygenation).toMatch(/consistent with moderate hypoxaemia/);
+    expect(r.ventilation).toMatch(/consistent with hypercapnia/);
+    expect(r['respiratory-failure']).toBe('Consistent with type 2 (hypercapnic) respiratory failure: hypoxaemia with hypercapnia.');
+    expect(r['hypoxaemia-mechanism']).toMatch(/^Hypoxaemia consistent with hypoventilation \(PaCO2 70 mmHg\)\. The A–a gradient \(\d mmHg\) is within the age-based normal of 14\.$/);
+  });
+
+  it('reads hypoxaemia at altitude with low PaCO2 as type 1 failure with a normal gradient', () => {
+    // Arterial samples from climbers at 8,400 m, PB 272 mmHg: mean PaO2 24.6 mmHg, PaCO2 13.3 mmHg,
+    // pH 7.53; the calculated A–a gradient was about 5 mmHg (Grocott MPW et al., NEJM 2009;360:140–149,
+    // from memory). HCO3 here is chosen to fit pH and PaCO2.
+    const r = readings('patient age 35 y\nplace barometric 272 mmHg\n@ 08:00\noxygen room air\nabg ph 7.53, pco2 13.3, po2 24.6, hco3 11');
+    expect(r['respiratory-failure']).toBe('Consistent with type 1 (hypoxaemic) respiratory failure: hypoxaemia with normal or low PaCO2.');
+    expect(r['hypoxaemia-mechanism']).toMatch(/^Hypoxaemia consistent with low inspired oxygen \(PiO2 47 mmHg\)\. The A–a gradient \(6 mmHg\) is within the age-based normal of 13\./);
+    expect(r.ventilation).toMatch(/consistent with hypocapnia/);
+  });
+
+  it('reads a raised gradient on air as V/Q mismatch, shunt or diffusion limit', () => {
+    const r = readings('patient age 60 y\n@ 08:00\noxygen room air\nabg 7.46/32/52/22.7');
+    expect(r['hypoxaemia-mechanism']).toMatch(/^Hypoxaemia consistent with a raised A–a gradient \(58 mmHg, above 19\): V\/Q mismatch, shunt or a diffusion limit\.$/);
+  });
+
+  it('reads hypercapnia held up by oxygen as type 2 failure', () => {
+    const r = readings('@ 08:00\noxygen venturi, fio2 0.28\nabg 7.30/62/68/30');
+    expect(r['respiratory-failure']).toMatch(/^Consistent with type 2 \(hypercapnic\) respiratory failure, with PaO2 held up by supplemental oxygen \(FiO2 0\.28\)\.$/);
+  });
+
+  it('names the Berlin oxygenation band only with PEEP or CPAP ≥ 5 cmH2O, and never as a diagnosis', () => {
+    // Bands: ARDS Definition Task Force, JAMA 2012;307:2526–2533 (from memory).
+    const withPeep = readings('@ 08:00\nvent peep 10, fio2 0.6\nabg 7.38/42/90/24');
+    expect(withPeep['oxygenation-band']).toMatch(/^P\/F 150 with PEEP 10 cmH2O: consistent with the 100–200 oxygenation band .* — an oxygenation band, not a diagnosis\.$/);
+    expect(readings('@ 08:00\nvent peep 4, fio2 0.6\nabg 7.38/42/90/24')['oxygenation-band']).toBeUndefined();
+    expect(readings('@ 08:00\noxygen cpap 8, fio2 0.5\nabg 7.38/42/90/24')['oxygenation-band']).toMatch(/with CPAP 8 cmH2O: consistent with the 100–200/);
+  });
+
+  it('uses the altitude-adjusted P/F for the band below sea-level pressure (× PB/760)', () => {
+    const r = readings('place barometric 600\n@ 08:00\nvent peep 8, fio2 0.4\nabg 7.40/40/100/24.4');
+    // P/F 250 × 600/760 = 197 → the 100–200 band.
+    expect(r['oxygenation-band']).toMatch(/^P\/F 197 \(adjusted for altitude\)/);
+  });
+
+  it('follows the threshold settings', () => {
+    const note = '@ 08:00\noxygen room air\nabg 7.34/48/58/25.4';
+    expect(readings(note).oxygenation).toMatch(/hypoxaemia/);
+    expect(readings(note, { hypoxaemiaBelowMmhg: 55 }).oxygenation).toMatch(/mildly reduced oxygenation/);
+    expect(readings(note).ventilation).toMatch(/mildly raised/);
+    expect(readings(note, { hypercapniaAboveMmhg: 45 }).ventilation).toMatch(/hypercapnia \(above 45 mmHg\)/);
+  });
+
+  it('phrases every reading as "consistent with", or says why there is none', () => {
+    const notes = ['abg 7.25/23/95/10', 'abg 7.20/70/55/27', 'abg 7.40/40/95/24.4', 'vent peep 10, fio2 0.6\nabg 7.38/42/90/24'];
+    for (const n of notes) {
+      for (const text of Object.values(readings(`@ 08:00\noxygen room air\n${n}`))) {
+        expect(text).toMatch(/consistent with|not consistent|not interpreted|not assessed/i);
+      }
+    }
+  });
+});
