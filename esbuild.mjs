@@ -6,7 +6,8 @@ import { existsSync, mkdirSync, writeFileSync } from 'node:fs';
 const production = process.argv.includes('--production');
 
 const artefacts = [
-  { name: 'cli', entry: 'server/src/cli/main.ts'},
+  { name: 'cli', entry: 'server/src/cli/main.ts' },
+  { name: 'core', entry: 'server/src/core/index.ts' },
   { name: 'server', entry: 'server/src/server/main.ts' },
   { name: 'extension', entry: 'client/src/extension.ts', external: ['vscode'] },
 ].filter((a) => existsSync(a.entry));

@@ -3,7 +3,8 @@
  * by position, each with its stable code and documentation anchor.
  */
 import { analyseText, analyseTree, type NoteAnalysis } from './analysis/analyse';
-import type { CheckContext, CheckDef, Report } from './checks/check';
+import type { CheckContext, CheckDef, Report, TimepointContext } from './checks/check';
+import type { Timepoint } from './analysis/model';
 import { internalError } from './checks/internal';
 import { CHECKS, docAnchor } from './checks/registry';
 import { withDefaults, type Settings } from './settings';
@@ -25,25 +26,49 @@ export function checkTree(tree: NoteTree, settings: Partial<Settings> = {}): Not
   return runChecks(analyseTree(tree, full), full);
 }
 
-export function runChecks(analysis: NoteAnalysis, settings: Settings, checks: readonly CheckDef[] = CHECKS): NoteResult {
+/**
+ * Findings of timepoint-scoped checks, kept per timepoint object: a session passes the same
+ * cache to each run, and a timepoint reused from the previous run keeps its findings.
+ */
+export type TimepointFindingsCache = WeakMap<Timepoint, readonly Finding[]>;
+
+export function runChecks(analysis: NoteAnalysis, settings: Settings, checks: readonly CheckDef[] = CHECKS, cache?: TimepointFindingsCache): NoteResult {
   const findings: Finding[] = [];
   const disabled = new Set(settings.disabledChecks.map((d) => d.toLowerCase()));
-  for (const check of checks) {
-    if (disabled.has(check.code.toLowerCase()) || disabled.has(check.alias)) continue;
-    const ctx: CheckContext = {
-      analysis,
-      settings,
-      report: (r: Report) => findings.push(toFinding(check, r)),
-    };
+  const enabled = checks.filter((c) => !disabled.has(c.code.toLowerCase()) && !disabled.has(c.alias));
+  const guard = (check: CheckDef, out: Finding[], body: () => void): void => {
     try {
-      check.run(ctx);
+      body();
     } catch (error) {
-      findings.push(toFinding(internalError, {
+      out.push(toFinding(internalError, {
         range: { start: { line: 0, character: 0 }, end: { line: 0, character: 0 } },
         message: `Check ${check.code} (${check.alias}) failed on this note: ${error instanceof Error ? error.message : String(error)}. Other checks still ran.`,
       }));
     }
+  };
+  for (const check of enabled) {
+    const run = check.run;
+    if (!run) continue;
+    const ctx: CheckContext = { analysis, settings, report: (r: Report) => findings.push(toFinding(check, r)) };
+    guard(check, findings, () => run(ctx));
   }
+  const perTimepoint = enabled.filter((c) => c.runTimepoint);
+  analysis.timeline.timepoints.forEach((timepoint, i) => {
+    const known = cache?.get(timepoint);
+    if (known) {
+      for (const f of known) findings.push(f);
+      return;
+    }
+    const derivation = analysis.derivations[i] ?? { timepoint: i, derived: [], missing: [], notApplicable: [], interpretations: [] };
+    const own: Finding[] = [];
+    for (const check of perTimepoint) {
+      const runTimepoint = check.runTimepoint!;
+      const ctx: TimepointContext = { analysis, settings, timepoint, derivation, report: (r: Report) => own.push(toFinding(check, r)) };
+      guard(check, own, () => runTimepoint(ctx));
+    }
+    cache?.set(timepoint, own);
+    for (const f of own) findings.push(f);
+  });
   findings.sort((a, b) => comparePositions(a.range.start, b.range.start) || a.code.localeCompare(b.code));
   return { analysis, findings };
 }

@@ -6,7 +6,15 @@
  * Carry rules: patient and place values carry until restated (a `place` line replaces the
  * whole place); an `oxygen` line replaces the previous oxygen line and ends ventilation;
  * a `vent` line ends oxygen-line therapy and updates the ventilator settings it restates,
- * keeping the rest; measurements (vitals, gases, labs) never carry.
+ * keeping the rest (a change of mode keeps only PEEP and FiO2); measurements (vitals, gases,
+ * labs) and device readings never carry.
+ *
+ * Incremental: the note is processed block by block (the lines before the first `@`, then one
+ * block per timepoint). Given the previous run's `TimelineCache`, a block whose line nodes are
+ * the same objects and whose incoming carried state is the same is not processed again. The
+ * carried state is kept in immutable maps, and a recomputed block reuses the previous block's
+ * held values when they are equal, so an edit to one timepoint recomputes only that timepoint
+ * and those that depend on what it carries.
  */
 import { fieldById } from '../fields/registry';
 import { sectionById, type SectionId } from '../fields/sections';
@@ -21,14 +29,18 @@ interface Held {
   readonly stated: StatedValue;
   /** Timepoint index where it was stated; -1 for the header. */
   readonly timepoint: number;
+  readonly label: string;
 }
 
+type HeldMap = ReadonlyMap<string, Held>;
+
 interface CarryState {
-  patient: Map<string, Held>;
-  place: Map<string, Held>;
-  oxygen: Map<string, Held>;
-  vent: Map<string, Held>;
-  gasUnit: Held | null;
+  readonly patient: HeldMap;
+  readonly place: HeldMap;
+  readonly oxygen: HeldMap;
+  readonly vent: HeldMap;
+  readonly gasUnit: Held | null;
+  readonly lastTime: TimepointTime;
 }
 
 export interface Timeline {
@@ -38,58 +50,133 @@ export interface Timeline {
   readonly header: readonly StatedValue[];
 }
 
-interface Builder {
-  index: number;
-  line: number | null;
-  label: string;
-  startLine: number;
-  endLine: number;
-  time: TimepointTime;
-  stated: StatedValue[];
+interface BlockResult {
+  readonly timepoint: Timepoint | null;
+  readonly header: readonly StatedValue[];
+  readonly issues: readonly ReadIssue[];
+  readonly stateOut: CarryState;
 }
 
+interface BlockEntry {
+  readonly nodes: readonly LineNode[];
+  readonly index: number;
+  readonly endLine: number;
+  readonly stateIn: CarryState;
+  readonly result: BlockResult;
+}
+
+/** What one run leaves for the next; opaque to callers. */
+export interface TimelineCache {
+  readonly settings: Settings;
+  readonly blocks: readonly BlockEntry[];
+  /** How many blocks the last run took from the cache (for tests and benchmarks). */
+  readonly reused: number;
+}
+
+const EMPTY: HeldMap = new Map();
+const START_STATE: CarryState = { patient: EMPTY, place: EMPTY, oxygen: EMPTY, vent: EMPTY, gasUnit: null, lastTime: { day: null, minutes: null } };
+
 export function buildTimeline(tree: NoteTree, settings: Settings): Timeline {
-  const readIssues: ReadIssue[] = [];
-  const header: StatedValue[] = [];
+  return buildTimelineIncremental(tree, settings, null).timeline;
+}
+
+export function buildTimelineIncremental(tree: NoteTree, settings: Settings, previous: TimelineCache | null): { timeline: Timeline; cache: TimelineCache } {
+  const usable = previous && previous.settings === settings ? previous.blocks : [];
+  const blocks = splitBlocks(tree.lines);
+  const entries: BlockEntry[] = [];
   const timepoints: Timepoint[] = [];
-  const state: CarryState = { patient: new Map(), place: new Map(), oxygen: new Map(), vent: new Map(), gasUnit: null };
-  let current: Builder | null = null;
-  let lastTime: TimepointTime = { day: null, minutes: null };
-  const labels: string[] = [];
-
-  const finish = (endLine: number): void => {
-    if (!current) return;
-    current.endLine = endLine;
-    timepoints.push(freeze(current, state, labels, settings));
-    current = null;
-  };
-
-  for (const node of tree.lines) {
-    if (node.kind === 'timepoint') {
-      finish(node.line - 1);
-      const index: number = timepoints.length;
-      const time = timeOf(node, lastTime, index === 0);
-      if (time.minutes !== null || time.day !== null) lastTime = time;
-      current = { index, line: node.line, label: labelOf(node), startLine: node.line, endLine: node.line, time, stated: [] };
-      labels[index] = current.label;
-      continue;
+  const header: StatedValue[] = [];
+  const readIssues: ReadIssue[] = [];
+  let state = START_STATE;
+  let reused = 0;
+  blocks.forEach((nodes, b) => {
+    const index = timepoints.length;
+    const endLine = b + 1 < blocks.length ? (blocks[b + 1]![0]!.line - 1) : tree.lines.length - 1;
+    const old = usable[b];
+    let result: BlockResult;
+    if (old && old.index === index && old.endLine === endLine && sameNodes(old.nodes, nodes) && sameState(old.stateIn, state)) {
+      result = old.result;
+      reused++;
+    } else {
+      result = processBlock(nodes, index, endLine, state, settings, tree, old?.result.stateOut ?? null);
     }
+    entries.push({ nodes, index, endLine, stateIn: state, result });
+    if (result.timepoint) timepoints.push(result.timepoint);
+    header.push(...result.header);
+    readIssues.push(...result.issues);
+    state = result.stateOut;
+  });
+  return { timeline: { timepoints, readIssues, header }, cache: { settings, blocks: entries, reused } };
+}
+
+/** Block 0: the lines before the first `@` (possibly empty); then one block per `@` line. */
+function splitBlocks(lines: readonly LineNode[]): LineNode[][] {
+  const blocks: LineNode[][] = [[]];
+  for (const node of lines) {
+    if (node.kind === 'timepoint') blocks.push([node]);
+    else blocks[blocks.length - 1]!.push(node);
+  }
+  return blocks;
+}
+
+/** Lines parse the same when their number and text are the same (the parser is a pure function of both). */
+function sameNodes(a: readonly LineNode[], b: readonly LineNode[]): boolean {
+  if (a.length !== b.length) return false;
+  for (let i = 0; i < a.length; i++) {
+    const x = a[i]!;
+    const y = b[i]!;
+    if (x !== y && (x.line !== y.line || x.text !== y.text)) return false;
+  }
+  return true;
+}
+
+/** Same entries in the same order (the order decides how carried values are listed). */
+function sameMap(a: HeldMap, b: HeldMap): boolean {
+  if (a === b) return true;
+  if (a.size !== b.size) return false;
+  const other = b.entries();
+  for (const [k, v] of a) {
+    const next = other.next().value;
+    if (!next || next[0] !== k || next[1] !== v) return false;
+  }
+  return true;
+}
+
+function sameState(a: CarryState, b: CarryState): boolean {
+  return a === b || (
+    sameMap(a.patient, b.patient) && sameMap(a.place, b.place) && sameMap(a.oxygen, b.oxygen) && sameMap(a.vent, b.vent) &&
+    a.gasUnit === b.gasUnit && a.lastTime.day === b.lastTime.day && a.lastTime.minutes === b.lastTime.minutes
+  );
+}
+
+function processBlock(nodes: readonly LineNode[], index: number, endLine: number, stateIn: CarryState, settings: Settings, tree: NoteTree, previousOut: CarryState | null): BlockResult {
+  const issues: ReadIssue[] = [];
+  const header: StatedValue[] = [];
+  const first = nodes[0];
+  const mutable = { ...stateIn };
+  let tp: { index: number; line: number | null; label: string; startLine: number; time: TimepointTime; stated: StatedValue[] } | null = null;
+  if (first?.kind === 'timepoint') {
+    const time = timeOf(first, stateIn.lastTime, index === 0);
+    if (time.minutes !== null || time.day !== null) mutable.lastTime = time;
+    tp = { index, line: first.line, label: labelOf(first), startLine: first.line, time, stated: [] };
+  }
+  for (const node of nodes) {
     if (node.kind !== 'section') continue;
     const kind = sectionById(node.section).kind;
     if (kind === 'prose') continue;
-    const inHeader = current === null && kind === 'header';
-    if (!inHeader && current === null) {
-      current = { index: 0, line: null, label: 'start', startLine: firstContentLine(tree), endLine: node.line, time: { day: null, minutes: null }, stated: [] };
-      labels[0] = 'start';
+    const inHeader = tp === null && kind === 'header';
+    if (!inHeader && tp === null) {
+      tp = { index: 0, line: null, label: 'start', startLine: firstContentLine(tree), time: { day: null, minutes: null }, stated: [] };
     }
-    const tpIndex = current ? current.index : -1;
-    const stated = readLine(node, state, settings, readIssues);
-    if (inHeader) header.push(...stated);
-    else current!.stated.push(...stated);
-    apply(node.section, stated, tpIndex, state, current?.stated ?? header, readIssues);
+    const stated = readLine(node, mutable, settings, issues);
+    const target = inHeader ? header : tp!.stated;
+    duplicates(node.section, stated, target, issues);
+    target.push(...stated);
+    apply(node.section, stated, tp ? tp.index : -1, tp ? tp.label : 'header', mutable);
   }
-  finish(tree.lines.length - 1);
-  return { timepoints, readIssues, header };
+  const stateOut = reuseEqual(mutable, previousOut);
+  if (!tp) return { timepoint: null, header, issues, stateOut };
+  return { timepoint: freeze(tp, endLine, stateOut, settings), header, issues, stateOut };
 }
 
 function firstContentLine(tree: NoteTree): number {
@@ -126,7 +213,7 @@ function readLine(node: SectionLine, state: CarryState, settings: Settings, issu
   const out: StatedValue[] = [];
   for (const item of node.items) {
     const { stated, issues: found } = readItem(item, node.section, node.line, { gasUnit, barometricMmhg });
-    issues.push(...found);
+    for (const f of found) issues.push(f);
     if (stated) out.push(stated);
   }
   return out;
@@ -140,59 +227,98 @@ export function barometricInForce(place: ReadonlyMap<string, { stated: StatedVal
   return null;
 }
 
-function apply(section: SectionId, stated: readonly StatedValue[], tp: number, state: CarryState, sameTimepoint: readonly StatedValue[], issues: ReadIssue[]): void {
-  // Duplicates within one timepoint and section: the later value wins, the earlier is named.
-  for (const s of stated) {
-    const earlier = sameTimepoint.find((o) => o !== s && o.fieldId === s.fieldId && o.line <= s.line && o.section === section && (o.line < s.line || o.item.span.start < s.item.span.start));
-    if (earlier) {
-      issues.push({
-        check: 'duplicate-key',
-        line: s.line,
-        span: s.item.key?.span ?? s.item.span,
-        message: `${s.item.keyName} is stated twice at this timepoint; the later value is used.`,
-        fixes: [],
-        related: [{ line: earlier.line, span: earlier.item.span, message: 'first stated here' }],
-      });
-    }
-  }
-  const hold = (map: Map<string, Held>) => {
-    for (const s of stated) if (!fieldById(s.fieldId)?.reading) map.set(s.fieldId, { stated: s, timepoint: tp });
+/** The same field twice in one section at one timepoint: the later value wins, the earlier is named. */
+function duplicates(section: SectionId, stated: readonly StatedValue[], sameTimepoint: readonly StatedValue[], issues: ReadIssue[]): void {
+  stated.forEach((s, i) => {
+    const earlier = sameTimepoint.find((o) => o.fieldId === s.fieldId && o.section === section) ?? stated.slice(0, i).find((o) => o.fieldId === s.fieldId);
+    if (!earlier) return;
+    issues.push({
+      check: 'duplicate-key',
+      line: s.line,
+      span: s.item.key?.span ?? s.item.span,
+      message: `${s.item.keyName} is stated twice at this timepoint; the later value is used.`,
+      fixes: [],
+      related: [{ line: earlier.line, span: earlier.item.span, message: 'first stated here' }],
+    });
+  });
+}
+
+type MutableState = { -readonly [K in keyof CarryState]: CarryState[K] };
+
+function apply(section: SectionId, stated: readonly StatedValue[], tp: number, label: string, state: MutableState): void {
+  const hold = (base: HeldMap): HeldMap => {
+    const next = new Map(base);
+    for (const s of stated) if (!fieldById(s.fieldId)?.reading) next.set(s.fieldId, { stated: s, timepoint: tp, label });
+    return next;
   };
   switch (section) {
-    case 'patient': hold(state.patient); break;
-    case 'place': if (stated.length > 0) { state.place = new Map(); hold(state.place); } break;
-    case 'units': { const g = stated.find((s) => s.fieldId === 'gas_unit'); if (g?.word) state.gasUnit = { stated: g, timepoint: tp }; break; }
-    case 'oxygen': state.oxygen = new Map(); state.vent = new Map(); hold(state.oxygen); break;
+    case 'patient': state.patient = hold(state.patient); break;
+    case 'place': if (stated.length > 0) state.place = hold(EMPTY); break;
+    case 'units': { const g = stated.find((s) => s.fieldId === 'gas_unit'); if (g?.word) state.gasUnit = { stated: g, timepoint: tp, label }; break; }
+    case 'oxygen': state.oxygen = hold(EMPTY); state.vent = EMPTY; break;
     case 'vent': {
-      state.oxygen = new Map();
+      state.oxygen = EMPTY;
       // A new mode starts a new set of settings; PEEP and FiO2 carry across it.
       const mode = stated.find((s) => s.fieldId === 'mode');
       const before = state.vent.get('mode')?.stated.word;
-      if (mode?.word && before && mode.word !== before) {
-        for (const id of [...state.vent.keys()]) if (id !== 'peep' && id !== 'fio2') state.vent.delete(id);
-      }
-      hold(state.vent);
+      let base = state.vent;
+      if (mode?.word && before && mode.word !== before) base = new Map([...base].filter(([id]) => id === 'peep' || id === 'fio2'));
+      state.vent = hold(base);
       break;
     }
     default: break;
   }
 }
 
-function freeze(b: Builder, state: CarryState, labels: readonly string[], settings: Settings): Timepoint {
+/** Keeps the previous run's held values (and maps) where the recomputed ones are equal. */
+function reuseEqual(state: MutableState, previous: CarryState | null): CarryState {
+  if (!previous) return state;
+  const reuseMap = (now: HeldMap, before: HeldMap): HeldMap => {
+    let same = now.size === before.size;
+    const order = before.keys();
+    const next = new Map<string, Held>();
+    for (const [k, v] of now) {
+      const b = before.get(k);
+      const keep = b && sameHeld(v, b) ? b : v;
+      if (keep !== b || order.next().value !== k) same = false;
+      next.set(k, keep);
+    }
+    return same ? before : next;
+  };
+  const gasUnit = state.gasUnit && previous.gasUnit && sameHeld(state.gasUnit, previous.gasUnit) ? previous.gasUnit : state.gasUnit;
+  return {
+    patient: reuseMap(state.patient, previous.patient),
+    place: reuseMap(state.place, previous.place),
+    oxygen: reuseMap(state.oxygen, previous.oxygen),
+    vent: reuseMap(state.vent, previous.vent),
+    gasUnit,
+    lastTime: state.lastTime,
+  };
+}
+
+function sameHeld(a: Held, b: Held): boolean {
+  if (a === b) return true;
+  const s = a.stated;
+  const t = b.stated;
+  return a.timepoint === b.timepoint && a.label === b.label && s.item === t.item && s.line === t.line && s.fieldId === t.fieldId &&
+    s.value === t.value && s.word === t.word && s.unit === t.unit && s.usable === t.usable && s.unitDoubt === t.unitDoubt;
+}
+
+function freeze(b: { index: number; line: number | null; label: string; startLine: number; time: TimepointTime; stated: StatedValue[] }, endLine: number, state: CarryState, settings: Settings): Timepoint {
   const values = new Map<string, InputValue>();
-  const put = (held: Held) => values.set(held.stated.fieldId, { stated: held.stated, origin: originOf(held, b.index, labels) });
+  const put = (held: Held) => values.set(held.stated.fieldId, { stated: held.stated, origin: originOf(held, b.index) });
   for (const map of [state.patient, state.place, state.oxygen, state.vent]) for (const held of map.values()) put(held);
   // Measurements and device readings stated here (the last of a field wins).
   for (const s of b.stated) {
     if (sectionById(s.section).kind === 'measure' || fieldById(s.fieldId)?.reading) values.set(s.fieldId, { stated: s, origin: { kind: 'here', line: s.line, span: s.item.span } });
   }
-  return { index: b.index, line: b.line, label: b.label, startLine: b.startLine, endLine: b.endLine, time: b.time, stated: b.stated, values, barometricMmhg: barometricInForce(state.place, settings) };
+  return { index: b.index, line: b.line, label: b.label, startLine: b.startLine, endLine, time: b.time, stated: b.stated, values, barometricMmhg: barometricInForce(state.place, settings) };
 }
 
-function originOf(held: Held, tp: number, labels: readonly string[]): Origin {
+function originOf(held: Held, tp: number): Origin {
   const { line } = held.stated;
   const span = held.stated.item.span;
   if (held.timepoint === tp) return { kind: 'here', line, span };
   if (held.timepoint < 0) return { kind: 'header', line, span };
-  return { kind: 'carried', line, span, timepoint: held.timepoint, timepointLabel: labels[held.timepoint] ?? '' };
+  return { kind: 'carried', line, span, timepoint: held.timepoint, timepointLabel: held.label };
 }

@@ -18,14 +18,14 @@ export const pao2AboveAlveolar = defineCheck({
     fix: 'Check the FiO2 in force (and where it came from), the unit of the PaO2 (kPa written as mmHg?), whether the sample was venous or arterial, and an air bubble in the syringe.',
   },
   source: SOURCES['alveolar-gas-equation'],
-  run(ctx) {
-    const { timeline, derivations } = ctx.analysis;
-    timeline.timepoints.forEach((tp, i) => {
-      const alveolar = derivations[i]?.derived.find((d) => d.id === 'pao2_alveolar');
+  runTimepoint(ctx) {
+    const tp = ctx.timepoint;
+    {
+      const alveolar = ctx.derivation.derived.find((d) => d.id === 'pao2_alveolar');
       const pao2 = tp.values.get('pao2');
       if (!alveolar || !pao2 || pao2.origin.kind !== 'here' || !pao2.stated.usable || pao2.stated.value === null) return;
       if (pao2.stated.value <= alveolar.value + ALVEOLAR_ROUNDING_MMHG) return;
-      const fio2 = alveolar.inputs.find((t) => t.name === 'PiO2') ? derivations[i]?.derived.find((d) => d.id === 'pio2')?.inputs.find((t) => t.name === 'FiO2') : undefined;
+      const fio2 = ctx.derivation.derived.find((d) => d.id === 'pio2')?.inputs.find((t) => t.name === 'FiO2');
       const related = fio2 && fio2.origin.kind !== 'default' && fio2.origin.kind !== 'derived'
         ? [{ range: toRange(fio2.origin.line, fio2.origin.span), message: `FiO2 ${formatNumber(fio2.value, 2)} in force (${describeInputOrigin(fio2.origin)})` }]
         : [];
@@ -34,6 +34,6 @@ export const pao2AboveAlveolar = defineCheck({
         message: `PaO2 ${formatNumber(pao2.stated.value, 0)} mmHg is above the alveolar PO2 of ${formatNumber(alveolar.value, 0)} mmHg that ${fio2 ? `FiO2 ${formatNumber(fio2.value, 2)}` : 'the FiO2'} allows here: check the FiO2, the unit, a venous sample or an air bubble.`,
         related,
       });
-    });
+    }
   },
 });

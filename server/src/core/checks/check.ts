@@ -5,6 +5,8 @@
  * and becomes an internal finding, never a crash.
  */
 import type { NoteAnalysis } from '../analysis/analyse';
+import type { Timepoint } from '../analysis/model';
+import type { TimepointDerivation } from '../derive/model';
 import type { Settings } from '../settings';
 import type { Fix, Range, Severity } from '../types';
 
@@ -32,6 +34,12 @@ export interface CheckContext {
   report(finding: Report): void;
 }
 
+/** What a timepoint-scoped check sees: one timepoint and its derived values. */
+export interface TimepointContext extends CheckContext {
+  readonly timepoint: Timepoint;
+  readonly derivation: TimepointDerivation;
+}
+
 export type CheckTag = 'syntax' | 'units' | 'plausibility' | 'timeline' | 'physiology' | 'interpretation' | 'privacy' | 'internal';
 
 export interface CheckDef {
@@ -43,7 +51,13 @@ export interface CheckDef {
   readonly doc: CheckDoc;
   /** Published source, "common practice, no source", or "format rule" for grammar checks. */
   readonly source: string;
-  readonly run: (ctx: CheckContext) => void;
+  /** A check over the whole note. */
+  readonly run?: (ctx: CheckContext) => void;
+  /**
+   * A check of one timepoint at a time: its findings depend only on that timepoint (its lines,
+   * values in force and derived values), so a session reuses them while the timepoint is unchanged.
+   */
+  readonly runTimepoint?: (ctx: TimepointContext) => void;
 }
 
 export function defineCheck(def: CheckDef): CheckDef {

@@ -16,17 +16,18 @@ export const gasInconsistent = defineCheck({
     fix: 'Check the three values against the analyser print-out; the hover shows the HCO3 the pH and PaCO2 imply.',
   },
   source: `${SOURCES['henderson-hasselbalch']}; tolerance: ${SOURCES['pneumark-consistency-tolerance']}`,
-  run(ctx) {
-    for (const tp of ctx.analysis.timeline.timepoints) {
+  runTimepoint(ctx) {
+    const tp = ctx.timepoint;
+    {
       const ph = tp.values.get('ph');
       const paco2 = tp.values.get('paco2');
       const hco3 = tp.values.get('hco3');
-      if (!ph || !paco2 || !hco3) continue;
-      if (hco3.origin.kind !== 'here') continue;
+      if (!ph || !paco2 || !hco3) return;
+      if (hco3.origin.kind !== 'here') return;
       const all = [ph, paco2, hco3];
-      if (all.some((v) => !v.stated.usable || v.stated.value === null)) continue;
+      if (all.some((v) => !v.stated.usable || v.stated.value === null)) return;
       const result = acidBaseConsistency(ph.stated.value!, paco2.stated.value!, hco3.stated.value!);
-      if (!result || result.consistent) continue;
+      if (!result || result.consistent) return;
       ctx.report({
         range: toRange(hco3.stated.line, hco3.stated.item.value?.span ?? hco3.stated.item.span),
         message: `HCO3 ${formatNumber(hco3.stated.value!, 1)} does not fit pH ${formatNumber(ph.stated.value!, 2)} and PaCO2 ${formatNumber(paco2.stated.value!, 0)} mmHg, which give ${formatNumber(result.calculatedHco3MmolL, 1)} mmol/L: a transcription error or values from different samples?`,

@@ -14,6 +14,6 @@ export const internalError = defineCheck({
   },
   source: 'none: a defect of Pneumark',
   run() {
-    // Reported by the runner, not run on its own.
+    // Reported by the runner when another check throws; nothing to look for on its own.
   },
 });

@@ -10,15 +10,13 @@ import { defineCheck, type CheckDef, type CheckDoc } from './check';
 function interpretationCheck(code: string, alias: string, title: string, topics: readonly InterpretationTopic[], source: string, doc: CheckDoc): CheckDef {
   return defineCheck({
     code, alias, title, severity: 'information', tags: ['interpretation'], doc, source,
-    run(ctx) {
-      for (const d of ctx.analysis.derivations) {
-        for (const i of d.interpretations) {
-          if (!topics.includes(i.topic) || !i.notable || i.line === null) continue;
-          const node = ctx.analysis.tree.lines[i.line];
-          const start = node?.kind === 'section' ? node.sectionToken.span.start : 0;
-          const end = node?.kind === 'section' ? (node.items[node.items.length - 1]?.span.end ?? node.sectionToken.span.end) : (node?.text.length ?? 0);
-          ctx.report({ range: toRange(i.line, { start, end }), message: i.text });
-        }
+    runTimepoint(ctx) {
+      for (const i of ctx.derivation.interpretations) {
+        if (!topics.includes(i.topic) || !i.notable || i.line === null) continue;
+        const node = ctx.analysis.tree.lines[i.line];
+        const start = node?.kind === 'section' ? node.sectionToken.span.start : 0;
+        const end = node?.kind === 'section' ? (node.items[node.items.length - 1]?.span.end ?? node.sectionToken.span.end) : (node?.text.length ?? 0);
+        ctx.report({ range: toRange(i.line, { start, end }), message: i.text });
       }
     },
   });

@@ -6,15 +6,16 @@
 import type { InputValue, Timepoint } from '../analysis/model';
 import { toRange } from '../syntax/tree';
 import { formatShort } from '../util/format';
-import { defineCheck, type CheckContext } from './check';
+import { defineCheck, type TimepointContext } from './check';
 
-function orderCheck(ctx: CheckContext, lowId: string, highId: string, message: (low: number, high: number) => string): void {
-  for (const tp of ctx.analysis.timeline.timepoints) {
+function orderCheck(ctx: TimepointContext, lowId: string, highId: string, message: (low: number, high: number) => string): void {
+  const tp = ctx.timepoint;
+  {
     const low = usableNumber(tp, lowId);
     const high = usableNumber(tp, highId);
-    if (!low || !high || low.value <= high.value) continue;
+    if (!low || !high || low.value <= high.value) return;
     const here = [high, low].find((v) => v.input.origin.kind === 'here');
-    if (!here) continue;
+    if (!here) return;
     const other = here === high ? low : high;
     const o = other.input.origin;
     ctx.report({
@@ -45,7 +46,7 @@ export const peepAbovePlateau = defineCheck({
     fix: 'Check both values; a plateau written as a driving pressure (plateau − PEEP) is a common slip.',
   },
   source: 'respiratory mechanics: plateau pressure is measured above atmospheric and includes PEEP (common practice, no source)',
-  run(ctx) {
+  runTimepoint(ctx) {
     orderCheck(ctx, 'peep', 'plateau', (low, high) => `PEEP ${formatShort(low)} is above the plateau pressure ${formatShort(high)} cmH2O; plateau pressure includes PEEP.`);
   },
 });
@@ -62,7 +63,7 @@ export const plateauAbovePeak = defineCheck({
     fix: 'Check whether the two were swapped.',
   },
   source: 'respiratory mechanics: peak = plateau + resistive pressure (common practice, no source)',
-  run(ctx) {
+  runTimepoint(ctx) {
     orderCheck(ctx, 'plateau', 'peak', (low, high) => `Plateau pressure ${formatShort(low)} is above the peak pressure ${formatShort(high)} cmH2O; were they swapped?`);
   },
 });
@@ -79,9 +80,9 @@ export const systolicBelowDiastolic = defineCheck({
     fix: 'Write systolic/diastolic: `bp 96/58`. The quick fix swaps them.',
   },
   source: 'definition of systolic and diastolic pressure, no source needed',
-  run(ctx) {
-    for (const tp of ctx.analysis.timeline.timepoints) {
-      for (const s of tp.stated) {
+  runTimepoint(ctx) {
+    {
+      for (const s of ctx.timepoint.stated) {
         const [sys, dia] = s.fieldId === 'bp' && s.parts ? s.parts : [];
         const value = s.item.value;
         if (sys === undefined || dia === undefined || sys >= dia || value?.kind !== 'pair') continue;

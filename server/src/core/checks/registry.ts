@@ -59,6 +59,7 @@ export function validateCheckList(list: readonly CheckDef[]): readonly CheckDef[
     if (codes.has(c.code)) throw new Error(`duplicate check code ${c.code}`);
     if (aliases.has(c.alias)) throw new Error(`duplicate check alias ${c.alias}`);
     if (!c.source.trim() || !c.doc.fires.trim() || !c.doc.fix.trim() || !c.doc.example.trim()) throw new Error(`check ${c.code} lacks documentation or a source`);
+    if (!c.run && !c.runTimepoint) throw new Error(`check ${c.code} has nothing to run`);
     codes.add(c.code);
     aliases.add(c.alias);
   }

@@ -10,16 +10,24 @@ import { displayUnit } from '../analysis/read-value';
 import { convert, unitById } from '../fields/units';
 import { toRange } from '../syntax/tree';
 import { formatNumber } from '../util/format';
-import { defineCheck, type CheckContext } from './check';
+import { defineCheck, type CheckContext, type CheckDef } from './check';
 
 const OWN_CHECKS = new Set(['fio2']);
 const SATURATIONS = new Set(['spo2', 'sao2', 'svo2']);
 
-/** Every stated value with the barometric pressure in force where it was stated. */
-export function* statedWithContext(ctx: CheckContext): Generator<{ stated: StatedValue; barometricMmhg: number | null }> {
-  const { timeline } = ctx.analysis;
-  for (const stated of timeline.header) yield { stated, barometricMmhg: null };
-  for (const tp of timeline.timepoints) for (const stated of tp.stated) yield { stated, barometricMmhg: tp.barometricMmhg };
+/**
+ * Runs a per-value test over the header (note scope) and over each timepoint's stated values
+ * (timepoint scope, with the barometric pressure in force there).
+ */
+function valueCheck(test: (ctx: CheckContext, stated: StatedValue, barometricMmhg: number | null) => void): Pick<CheckDef, 'run' | 'runTimepoint'> {
+  return {
+    run(ctx) {
+      for (const stated of ctx.analysis.timeline.header) test(ctx, stated, null);
+    },
+    runTimepoint(ctx) {
+      for (const stated of ctx.timepoint.stated) test(ctx, stated, ctx.timepoint.barometricMmhg);
+    },
+  };
 }
 
 function numbersOf(s: StatedValue): number[] {
@@ -55,18 +63,16 @@ export const impossibleValue = defineCheck({
     fix: 'Check the transcription and the unit. The bounds of each field and their sources are listed in grammar/README.md.',
   },
   source: 'field registry bounds; each field names its source (mostly common practice, no source)',
-  run(ctx) {
-    for (const { stated } of statedWithContext(ctx)) {
-      const field = fieldById(stated.fieldId);
-      if (!field?.hard || OWN_CHECKS.has(field.id) || stated.readUnit === null || stated.unitDoubt) continue;
-      if (SATURATIONS.has(field.id) && numbersOf(stated).every((v) => v >= 0)) continue;
-      if (!outOfBounds(stated, field.hard)) continue;
-      ctx.report({
-        range: toRange(stated.line, stated.item.value?.span ?? stated.item.span),
-        message: `${field.label} ${stated.item.value?.text ?? ''} is impossible (expected ${describe(field.hard, field, stated)}); it is not used in calculations.`,
-      });
-    }
-  },
+  ...valueCheck((ctx, stated) => {
+    const field = fieldById(stated.fieldId);
+    if (!field?.hard || OWN_CHECKS.has(field.id) || stated.readUnit === null || stated.unitDoubt) return;
+    if (SATURATIONS.has(field.id) && numbersOf(stated).every((v) => v >= 0)) return;
+    if (!outOfBounds(stated, field.hard)) return;
+    ctx.report({
+      range: toRange(stated.line, stated.item.value?.span ?? stated.item.span),
+      message: `${field.label} ${stated.item.value?.text ?? ''} is impossible (expected ${describe(field.hard, field, stated)}); it is not used in calculations.`,
+    });
+  }),
 });
 
 export const unusualValue = defineCheck({
@@ -81,19 +87,17 @@ export const unusualValue = defineCheck({
     fix: 'Confirm the value; if it is right, the warning can stay (or the check can be switched off in settings).',
   },
   source: 'field registry bounds; each field names its source (mostly common practice, no source)',
-  run(ctx) {
-    for (const { stated, barometricMmhg } of statedWithContext(ctx)) {
-      const field = fieldById(stated.fieldId);
-      if (!field?.soft || OWN_CHECKS.has(field.id) || !stated.usable || stated.readUnit === null || stated.unitDoubt) continue;
-      if (field.hard && outOfBounds(stated, field.hard)) continue;
-      const soft = softBounds(field, { barometricMmhg });
-      if (!outOfBounds(stated, soft)) continue;
-      ctx.report({
-        range: toRange(stated.line, stated.item.value?.span ?? stated.item.span),
-        message: `${field.label} ${stated.item.value?.text ?? ''} is unusual (usually ${describe(soft ?? {}, field, stated)}): check the unit and the transcription.`,
-      });
-    }
-  },
+  ...valueCheck((ctx, stated, barometricMmhg) => {
+    const field = fieldById(stated.fieldId);
+    if (!field?.soft || OWN_CHECKS.has(field.id) || !stated.usable || stated.readUnit === null || stated.unitDoubt) return;
+    if (field.hard && outOfBounds(stated, field.hard)) return;
+    const soft = softBounds(field, { barometricMmhg });
+    if (!outOfBounds(stated, soft)) return;
+    ctx.report({
+      range: toRange(stated.line, stated.item.value?.span ?? stated.item.span),
+      message: `${field.label} ${stated.item.value?.text ?? ''} is unusual (usually ${describe(soft ?? {}, field, stated)}): check the unit and the transcription.`,
+    });
+  }),
 });
 
 export const saturationAbove100 = defineCheck({
@@ -108,15 +112,13 @@ export const saturationAbove100 = defineCheck({
     fix: 'Correct the transcription; a saturation cannot exceed 100 %.',
   },
   source: 'definition of saturation (a fraction of haemoglobin), no source needed',
-  run(ctx) {
-    for (const { stated } of statedWithContext(ctx)) {
-      if (!SATURATIONS.has(stated.fieldId) || stated.value === null || stated.value <= 100) continue;
-      ctx.report({
-        range: toRange(stated.line, stated.item.value?.span ?? stated.item.span),
-        message: `${fieldById(stated.fieldId)?.label ?? stated.fieldId} ${stated.item.value?.text ?? ''} % is above 100 %, which is impossible.`,
-      });
-    }
-  },
+  ...valueCheck((ctx, stated) => {
+    if (!SATURATIONS.has(stated.fieldId) || stated.value === null || stated.value <= 100) return;
+    ctx.report({
+      range: toRange(stated.line, stated.item.value?.span ?? stated.item.span),
+      message: `${fieldById(stated.fieldId)?.label ?? stated.fieldId} ${stated.item.value?.text ?? ''} % is above 100 %, which is impossible.`,
+    });
+  }),
 });
 
 export const fio2OutOfRange = defineCheck({
@@ -131,16 +133,14 @@ export const fio2OutOfRange = defineCheck({
     fix: 'Write a fraction (0.4) or a percentage (40 %). For a flow, use the device flow (`oxygen cannula 4 L/min`).',
   },
   source: 'common practice, no source: air is 0.21 and pure oxygen 1.0',
-  run(ctx) {
-    for (const { stated } of statedWithContext(ctx)) {
-      if (stated.fieldId !== 'fio2' || stated.value === null) continue;
-      if (stated.value >= 0.21 - 1e-9 && stated.value <= 1 + 1e-9) continue;
-      const written = stated.item.value?.text ?? '';
-      const reading = stated.readUnit === '%' ? `${written} %` : written;
-      ctx.report({
-        range: toRange(stated.line, stated.item.value?.span ?? stated.item.span),
-        message: `FiO2 ${reading} is ${stated.value < 0.21 ? 'below 0.21 (room air)' : 'above 1.0 (pure oxygen)'}; it is not used in calculations.`,
-      });
-    }
-  },
+  ...valueCheck((ctx, stated) => {
+    if (stated.fieldId !== 'fio2' || stated.value === null) return;
+    if (stated.value >= 0.21 - 1e-9 && stated.value <= 1 + 1e-9) return;
+    const written = stated.item.value?.text ?? '';
+    const reading = stated.readUnit === '%' ? `${written} %` : written;
+    ctx.report({
+      range: toRange(stated.line, stated.item.value?.span ?? stated.item.span),
+      message: `FiO2 ${reading} is ${stated.value < 0.21 ? 'below 0.21 (room air)' : 'above 1.0 (pure oxygen)'}; it is not used in calculations.`,
+    });
+  }),
 });

@@ -2,7 +2,7 @@
 import { SOURCES } from '../physiology';
 import { toRange } from '../syntax/tree';
 import { formatNumber } from '../util/format';
-import { defineCheck, type CheckContext } from './check';
+import { defineCheck, type TimepointContext } from './check';
 
 /** Upper end of the tidal-volume range of the ARDS Network protocol (mL/kg PBW). */
 export const VT_PER_KG_LIMIT = 8;
@@ -11,14 +11,11 @@ export const PLATEAU_LIMIT_CMH2O = 30;
 /** Driving pressure commonly flagged (cmH2O) (common practice, after Amato 2015). */
 export const DRIVING_PRESSURE_LIMIT_CMH2O = 15;
 
-function derivedAbove(ctx: CheckContext, id: string, limit: number, anchorField: string, message: (v: number) => string): void {
-  const { timeline, derivations } = ctx.analysis;
-  timeline.timepoints.forEach((tp, i) => {
-    const d = derivations[i]?.derived.find((x) => x.id === id);
-    const anchor = tp.values.get(anchorField);
-    if (!d || d.value <= limit + 1e-9 || !anchor || anchor.origin.kind !== 'here') return;
-    ctx.report({ range: toRange(anchor.stated.line, anchor.stated.item.span), message: message(d.value) });
-  });
+function derivedAbove(ctx: TimepointContext, id: string, limit: number, anchorField: string, message: (v: number) => string): void {
+  const d = ctx.derivation.derived.find((x) => x.id === id);
+  const anchor = ctx.timepoint.values.get(anchorField);
+  if (!d || d.value <= limit + 1e-9 || !anchor || anchor.origin.kind !== 'here') return;
+  ctx.report({ range: toRange(anchor.stated.line, anchor.stated.item.span), message: message(d.value) });
 }
 
 export const tidalVolumeHigh = defineCheck({
@@ -33,7 +30,7 @@ export const tidalVolumeHigh = defineCheck({
     fix: 'Check the height and sex on the patient line and the tidal volume; whether to change the setting is a clinical decision.',
   },
   source: SOURCES['ardsnet-2000'],
-  run(ctx) {
+  runTimepoint(ctx) {
     derivedAbove(ctx, 'vt_per_kg_pbw', VT_PER_KG_LIMIT, 'vt', (v) => `Tidal volume is ${formatNumber(v, 1)} mL/kg predicted body weight, above the ${VT_PER_KG_LIMIT} mL/kg top of the lung-protective range.`);
   },
 });
@@ -50,12 +47,10 @@ export const plateauHigh = defineCheck({
     fix: 'Confirm the measurement (a true inspiratory hold); a clinical review decides what follows.',
   },
   source: SOURCES['ardsnet-2000'],
-  run(ctx) {
-    for (const tp of ctx.analysis.timeline.timepoints) {
-      const plat = tp.values.get('plateau');
-      if (!plat || plat.origin.kind !== 'here' || !plat.stated.usable || plat.stated.value === null || plat.stated.value <= PLATEAU_LIMIT_CMH2O) continue;
-      ctx.report({ range: toRange(plat.stated.line, plat.stated.item.span), message: `Plateau pressure ${formatNumber(plat.stated.value, 0)} cmH2O is above ${PLATEAU_LIMIT_CMH2O} cmH2O.` });
-    }
+  runTimepoint(ctx) {
+    const plat = ctx.timepoint.values.get('plateau');
+    if (!plat || plat.origin.kind !== 'here' || !plat.stated.usable || plat.stated.value === null || plat.stated.value <= PLATEAU_LIMIT_CMH2O) return;
+    ctx.report({ range: toRange(plat.stated.line, plat.stated.item.span), message: `Plateau pressure ${formatNumber(plat.stated.value, 0)} cmH2O is above ${PLATEAU_LIMIT_CMH2O} cmH2O.` });
   },
 });
 
@@ -71,7 +66,7 @@ export const drivingPressureHigh = defineCheck({
     fix: 'Confirm plateau and PEEP; a clinical review decides what follows.',
   },
   source: `${SOURCES['amato-2015']}; the 15 cmH2O flag is common practice, no source`,
-  run(ctx) {
+  runTimepoint(ctx) {
     derivedAbove(ctx, 'driving_pressure', DRIVING_PRESSURE_LIMIT_CMH2O, 'plateau', (v) => `Driving pressure is ${formatNumber(v, 0)} cmH2O (plateau − PEEP), above ${DRIVING_PRESSURE_LIMIT_CMH2O} cmH2O.`);
   },
 });

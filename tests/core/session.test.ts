@@ -1,0 +1,71 @@
+// The incremental session gives exactly what a fresh analysis gives, whatever the edits, and
+// recomputes only the timepoints an edit touches (and those that depend on what they carry).
+import fc from 'fast-check';
+import { describe, expect, it } from 'vitest';
+import { checkNote, type NoteResult } from '../../server/src/core/check-note';
+import { NoteSession } from '../../server/src/core/session';
+import { readFileSync } from 'node:fs';
+
+function snapshot(r: NoteResult): unknown {
+  return {
+    findings: r.findings,
+    timepoints: r.analysis.timeline.timepoints.map((tp) => ({ ...tp, values: [...tp.values.entries()].map(([k, v]) => [k, v.stated.value, v.stated.word, v.origin]) , stated: tp.stated.map((s) => [s.fieldId, s.value, s.line]) })),
+    derivations: r.analysis.derivations,
+  };
+}
+
+const base = readFileSync('samples/icu-ventilated-lung-injury.pneu', 'utf8');
+const baseLines = base.split('\n');
+
+describe('NoteSession', () => {
+  it('matches a fresh analysis after every edit of a random edit sequence (300 sequences)', () => {
+    const edit = fc.record({
+      line: fc.nat({ max: baseLines.length + 2 }),
+      kind: fc.constantFrom('replace', 'insert', 'delete', 'type'),
+      text: fc.constantFrom('vitals hr 90', 'abg 7.30/50/70/24', 'vent peep 14', 'oxygen room air', '@ 23:00 later', 'place altitude 2000 m', 'units gas kPa', '', '# comment', 'patient age 80 y', 'x'),
+    });
+    fc.assert(
+      fc.property(fc.array(edit, { minLength: 1, maxLength: 8 }), (edits) => {
+        const session = new NoteSession();
+        const lines = [...baseLines];
+        session.update(lines.join('\n'));
+        for (const e of edits) {
+          const at = Math.min(e.line, lines.length);
+          if (e.kind === 'replace' && at < lines.length) lines[at] = e.text;
+          else if (e.kind === 'insert') lines.splice(at, 0, e.text);
+          else if (e.kind === 'delete' && lines.length > 1 && at < lines.length) lines.splice(at, 1);
+          else if (e.kind === 'type' && at < lines.length) lines[at] = `${lines[at]}${e.text.slice(0, 3)}`;
+          const text = lines.join('\n');
+          expect(snapshot(session.update(text))).toEqual(snapshot(checkNote(text)));
+        }
+      }),
+      { numRuns: 300 },
+    );
+  });
+
+  it('reuses every other timepoint when a measurement changes', () => {
+    const session = new NoteSession();
+    session.update(base);
+    const edited = base.replace('abg       7.33/45/82/23.1', 'abg       7.34/45/82/23.6');
+    session.update(edited);
+    expect(session.stats).toEqual({ parsedLines: 1, reusedTimepoints: session.stats.timepoints, timepoints: 4 });
+  });
+
+  it('recomputes the later timepoints that carry a changed setting, and only those from there on', () => {
+    const session = new NoteSession();
+    session.update(base);
+    session.update(base.replace('vent      peep 12, fio2 0.6', 'vent      peep 13, fio2 0.6'));
+    // Blocks: header, day1 22:15, day2 02:00 (edited), day2 08:00, day3 09:30 → the first two reused.
+    expect(session.stats.reusedTimepoints).toBe(2);
+    expect(session.stats.parsedLines).toBe(1);
+  });
+
+  it('starts afresh when the settings change', () => {
+    const session = new NoteSession();
+    const a = session.update(base);
+    session.setSettings({ alveolarEquation: 'full' });
+    const b = session.update(base);
+    expect(b).not.toBe(a);
+    expect(snapshot(b)).toEqual(snapshot(checkNote(base, { alveolarEquation: 'full' })));
+  });
+});
