@@ -1,0 +1,160 @@
+/**
+ * Code actions for a range of the note:
+ * (a) every fix of every finding the range touches, as a quick fix tagged with its code;
+ * (b) write the value under the cursor in the other unit (mmHg ↔ kPa, FiO2 fraction ↔ %,
+ *     °C ↔ °F, g/dL ↔ g/L), number and unit together; a shorthand gas converts both pressures;
+ * (c) write out the unit a bare value was read in (`po2 71` → `po2 71 mmHg`);
+ * (d) fix all findings of one kind whose fix is marked safe, and one source action that
+ *     applies every safe fix in the note (edits never overlap);
+ * (e) convert every gas pressure in the note to mmHg or kPa (`convertNoteUnits`), offered on a
+ *     gas pressure or on the `units` line.
+ */
+import type { NoteResult } from '../check-note';
+import type { StatedValue } from '../analysis/model';
+import { checkByCodeOrAlias } from '../checks/registry';
+import { fieldById } from '../fields/registry';
+import { comparePositions, type Finding, type Fix, type Range, type TextEdit } from '../types';
+import { allStated, isValidPosition, itemAt, lineAt } from './locate';
+import { editsOverlap } from './text-edits';
+import { convertNoteUnits, itemConversionEdits, numberIn, otherUnit, shorthandConversionEdits, shorthandPressures, writtenUnit, type GasUnit } from './unit-conversion';
+import type { ActionInfo } from './types';
+
+export { convertNoteUnits } from './unit-conversion';
+
+function touches(a: Range, b: Range): boolean {
+  return comparePositions(a.start, b.end) <= 0 && comparePositions(b.start, a.end) <= 0;
+}
+
+export function codeActions(result: NoteResult, range: Range): ActionInfo[] {
+  if (!isValidPosition(range.start) || !isValidPosition(range.end) || comparePositions(range.start, range.end) > 0) return [];
+  const actions: ActionInfo[] = [];
+
+  // (a) fixes of the findings here
+  for (const f of result.findings) {
+    if (!touches(f.range, range)) continue;
+    for (const fix of f.fixes) {
+      actions.push({ title: fix.title, kind: 'quickfix', edits: [...fix.edits], findingCodes: [f.code], ...(fix.preferred ? { preferred: true } : {}) });
+    }
+  }
+
+  // (b), (c), (e): the value under the cursor
+  actions.push(...valueActions(result, range));
+
+  // (d) fix all of a kind
+  actions.push(...fixAllActions(result, range));
+  return actions;
+}
+
+function valueActions(result: NoteResult, range: Range): ActionInfo[] {
+  const node = lineAt(result, range.start.line);
+  if (!node || node.kind !== 'section' || range.start.character > node.text.length) return [];
+  const out: ActionInfo[] = [];
+  const line = node.line;
+  const hit = itemAt(node, range.start.character);
+  let onGas = node.section === 'units';
+
+  if (hit) {
+    const stated = allStated(result).find((s) => s.line === line && s.item === hit.item) ?? null;
+    const field = stated ? fieldById(stated.fieldId) : undefined;
+    if (stated && field) {
+      onGas ||= field.dimension === 'gas-pressure';
+      if (hit.item.implied === 'shorthand') {
+        out.push(...shorthandActions(result, line));
+      } else {
+        out.push(...conversionAction(stated), ...addUnitAction(stated));
+      }
+    }
+  }
+
+  if (onGas) {
+    const stated = allStated(result);
+    for (const to of ['mmHg', 'kPa'] as const) {
+      if (!stated.some((s) => fieldById(s.fieldId)?.dimension === 'gas-pressure' && s.readUnit !== null && s.readUnit !== to && (fieldById(s.fieldId)?.units?.includes(to) ?? false))) continue;
+      const edits = convertNoteUnits(result, to);
+      if (edits.length > 0) out.push({ title: `Convert every gas pressure in the note to ${to}`, kind: 'refactor.rewrite', edits });
+    }
+  }
+  return out;
+}
+
+function keyOf(s: StatedValue): string {
+  return s.item.key?.text ?? s.item.keyName;
+}
+
+function conversionAction(s: StatedValue): ActionInfo[] {
+  const to = otherUnit(s);
+  const field = fieldById(s.fieldId);
+  if (!to || !field || s.unitDoubt || !s.usable) return [];
+  const edits = itemConversionEdits(s.line, s, to);
+  const number = numberIn(s, field, to);
+  if (!edits || number === null) return [];
+  const shown = to === 'fraction' ? `${number} (a fraction)` : `${number} ${writtenUnit(to)}`;
+  return [{ title: `Write ${keyOf(s)} in ${to === 'fraction' ? 'a fraction' : writtenUnit(to)}: ${shown}`, kind: 'refactor.rewrite', edits }];
+}
+
+function addUnitAction(s: StatedValue): ActionInfo[] {
+  if (!s.unitImplied || !s.readUnit || s.unitDoubt || s.readUnit === 'fraction' || s.readUnit === 'ph' || !s.item.value) return [];
+  const unit = writtenUnit(s.readUnit);
+  const end = s.item.value.span.end;
+  return [{
+    title: `Write the unit it was read in: ${keyOf(s)} ${s.item.value.text} ${unit}`,
+    kind: 'refactor.rewrite',
+    edits: [{ range: { start: { line: s.line, character: end }, end: { line: s.line, character: end } }, newText: ` ${unit}` }],
+  }];
+}
+
+function shorthandActions(result: NoteResult, line: number): ActionInfo[] {
+  const node = lineAt(result, line);
+  const sh = node ? shorthandPressures(result, node) : null;
+  if (!sh) return [];
+  const read = sh.parts[0]?.readUnit;
+  if (!read || sh.parts.some((p) => p.readUnit !== read || p.unitDoubt || !p.usable)) return [];
+  const out: ActionInfo[] = [];
+  const to: GasUnit = read === 'kPa' ? 'mmHg' : 'kPa';
+  const edits = shorthandConversionEdits(sh, to);
+  if (edits) out.push({ title: `Write the shorthand gas pressures in ${to}`, kind: 'refactor.rewrite', edits });
+  if (!sh.unit && sh.parts.every((p) => p.unitImplied)) {
+    out.push({
+      title: `Write the unit the shorthand pressures were read in: ${read}`,
+      kind: 'refactor.rewrite',
+      edits: [{ range: { start: { line, character: sh.end }, end: { line, character: sh.end } }, newText: ` ${read}` }],
+    });
+  }
+  return out;
+}
+
+function preferredFix(f: Finding): Fix | undefined {
+  return f.fixes.find((x) => x.preferred === true);
+}
+
+/** Edits of the safe fixes of these findings, skipping any that would overlap an earlier one. */
+function safeEdits(findings: readonly Finding[]): { edits: TextEdit[]; codes: string[]; count: number } {
+  const edits: TextEdit[] = [];
+  const codes = new Set<string>();
+  let count = 0;
+  for (const f of findings) {
+    const fix = preferredFix(f);
+    if (!fix || fix.edits.length === 0) continue;
+    if (editsOverlap([...edits, ...fix.edits])) continue;
+    edits.push(...fix.edits);
+    codes.add(f.code);
+    count++;
+  }
+  return { edits, codes: [...codes], count };
+}
+
+function fixAllActions(result: NoteResult, range: Range): ActionInfo[] {
+  const withSafeFix = result.findings.filter((f) => preferredFix(f) !== undefined);
+  if (withSafeFix.length === 0) return [];
+  const out: ActionInfo[] = [];
+  const codesHere = [...new Set(withSafeFix.filter((f) => touches(f.range, range)).map((f) => f.code))];
+  for (const code of codesHere) {
+    const { edits, count } = safeEdits(withSafeFix.filter((f) => f.code === code));
+    if (count < 2) continue;
+    const title = checkByCodeOrAlias(code)?.title ?? code;
+    out.push({ title: `Fix all in the note: ${title} (${code}, ${count} places)`, kind: 'quickfix', edits, findingCodes: [code] });
+  }
+  const all = safeEdits(withSafeFix);
+  if (all.count > 0) out.push({ title: `Apply every safe fix in the note (${all.count})`, kind: 'source.fixAll', edits: all.edits, findingCodes: all.codes });
+  return out;
+}

@@ -1,0 +1,221 @@
+/**
+ * Completions from the registries, by where the cursor is on its line:
+ * - at the start of a line (or in its first word): sections, `@` timepoint snippets, a gas-line
+ *   and a vent-line snippet;
+ * - after `@`: time snippets;
+ * - after a section word or a comma: the section's keys not yet used on the line (an oxygen
+ *   line starts with its device; a gas line may start with a shorthand);
+ * - after a key that takes a word (`mode`, `sex`, `gas`, `device`): its words;
+ * - after a key and a number (or a shorthand gas, or a device's flow): the units it takes.
+ * Completions are narrowed to those that contain the typed letters in order.
+ */
+import type { NoteResult } from '../check-note';
+import { displayUnit } from '../analysis/read-value';
+import { fieldFor, fieldsInSection, type FieldDef } from '../fields/registry';
+import { SECTIONS, sectionByName, type SectionDef, type SectionId } from '../fields/sections';
+import { chunkLine, isBlank, leadingNumber } from '../syntax/lexer';
+import { parseLine } from '../syntax/parser';
+import type { ItemNode } from '../syntax/tree';
+import type { Position, Range } from '../types';
+import { ITEM_COLUMN } from './format';
+import { isValidPosition, lineAt, lineRange } from './locate';
+import type { CompletionInfo } from './types';
+
+const KIND_DETAIL: Readonly<Record<SectionDef['kind'], string>> = {
+  header: 'header line: holds for the whole note',
+  setting: 'settings: carry forward until restated',
+  measure: 'measurements at this timepoint',
+  prose: 'free text',
+};
+
+export function completionsAt(result: NoteResult, position: Position): CompletionInfo[] {
+  if (!isValidPosition(position)) return [];
+  const node = lineAt(result, position.line);
+  if (!node) return [];
+  const text = node.text;
+  const ch = position.character;
+  if (ch > text.length) return [];
+  const hash = text.indexOf('#');
+  if (hash >= 0 && ch > hash) return [];
+  const line = position.line;
+
+  let wordStart = ch;
+  while (wordStart > 0 && !isBlank(text.charCodeAt(wordStart - 1)) && text.charAt(wordStart - 1) !== ',') wordStart--;
+  let wordEnd = ch;
+  while (wordEnd < text.length && !isBlank(text.charCodeAt(wordEnd)) && text.charAt(wordEnd) !== ',' && text.charAt(wordEnd) !== '#') wordEnd++;
+  const typed = text.slice(wordStart, ch);
+  const before = text.slice(0, wordStart);
+  const chunks = chunkLine(before);
+  const first = chunks[0];
+
+  if (!first) {
+    const restOfLine = text.slice(wordEnd).trim();
+    return narrow(lineStartCompletions(restOfLine === '', lineRange(line, wordStart, ch)), typed);
+  }
+  if (first.text.startsWith('@')) {
+    return chunks.length === 1 && first.text === '@' ? narrow(timeCompletions(lineRange(line, wordStart, ch)), typed) : [];
+  }
+  const section = sectionByName(first.text);
+  if (!section || section.id === 'note') return [];
+
+  // A number being typed with a unit glued to it: `71mm|`.
+  const number = leadingNumber(typed);
+  let unitTyped = typed;
+  let unitStart = wordStart;
+  let afterNumber = false;
+  if (number.length > 0) {
+    if (number.length === typed.length) return [];
+    unitTyped = typed.slice(number.length);
+    unitStart = wordStart + number.length;
+    afterNumber = true;
+  }
+
+  const replace = lineRange(line, wordStart, ch);
+  const used = usedFields(section.id, node.kind === 'section' ? node.items : [], wordStart);
+  const keys = () => narrow(keyCompletions(section.id, used, replace), typed);
+  const last = chunks[chunks.length - 1]!;
+  const afterComma = before.slice(last.span.end).includes(',');
+  if (chunks.length === 1) {
+    if (afterNumber) return [];
+    if (section.id === 'oxygen') return narrow(wordCompletions(fieldFor('oxygen', 'device'), replace), typed);
+    const shorthand = section.id === 'abg' || section.id === 'vbg' ? [shorthandSnippet(section.id, replace)] : [];
+    return narrow([...keyCompletions(section.id, used, replace), ...shorthand], typed);
+  }
+  if (afterComma) return afterNumber ? [] : keys();
+
+  const prefix = parseLine(before, line);
+  const items = prefix.kind === 'section' ? prefix.items : [];
+  const item = items[items.length - 1];
+  if (!item || item.span.end !== last.span.end) return afterNumber ? [] : keys();
+  const field = fieldFor(section.id, item.keyName);
+  const unitRange = lineRange(line, unitStart, ch);
+
+  if (afterNumber) {
+    // `key 71mm|`: the number belongs to the last key, which has no value yet.
+    if (item.key && !item.value && field && field.kind !== 'word') return narrow(unitCompletions(field, unitRange), unitTyped);
+    return [];
+  }
+  if (!item.value) {
+    if (!field) return [];
+    if (field.kind === 'word') return narrow(wordCompletions(field, replace), typed);
+    return [];
+  }
+  if (item.unit === null && item.value.kind !== 'word') {
+    const unitField = item.implied === 'shorthand' ? shorthandUnitField(section.id, items) : field;
+    const units = unitField ? narrow(unitCompletions(unitField, replace), typed) : [];
+    if (units.length > 0) return units;
+  }
+  return keys();
+}
+
+// ── what is offered ─────────────────────────────────────────────────────
+
+function lineStartCompletions(emptyRest: boolean, replace: Range): CompletionInfo[] {
+  const sections: CompletionInfo[] = SECTIONS.map((s) => ({
+    label: s.id,
+    kind: 'section',
+    detail: KIND_DETAIL[s.kind],
+    documentation: s.description,
+    insertText: emptyRest ? `${s.id.padEnd(ITEM_COLUMN - 1)} ` : s.id,
+    replace,
+  }));
+  const snippets: CompletionInfo[] = [
+    { label: '@ day 1 08:00  label', kind: 'snippet', detail: 'timepoint on a given day', documentation: 'A timepoint: the day of the note (day 1 is the first), the clock time, and a label.', insertText: '@ day ${1:1} ${2:08:00}  ${3:label}', isSnippet: true, replace },
+    { label: '@ 08:00  label', kind: 'snippet', detail: 'timepoint at a clock time', documentation: 'A timepoint at a clock time: the same day as the previous one, or the next day when the clock is earlier.', insertText: '@ ${1:08:00}  ${2:label}', isSnippet: true, replace },
+    { label: '@ +1h', kind: 'snippet', detail: 'timepoint after an interval', documentation: 'A timepoint an interval after the previous one: `+2h30`, `+45m`, `+1d`.', insertText: '@ +${1:1h}', isSnippet: true, replace },
+    { label: 'abg pH/PCO2/PO2/HCO3', kind: 'snippet', detail: 'arterial gas, shorthand', documentation: 'A full arterial gas in shorthand: pH / PaCO2 / PaO2 / HCO3. The numbers are placeholders: replace every one.', insertText: `${'abg'.padEnd(ITEM_COLUMN)}\${1:7.40}/\${2:40}/\${3:90}/\${4:24}`, isSnippet: true, replace },
+    { label: 'vent mode, vt, rate, peep, fio2', kind: 'snippet', detail: 'ventilator settings', documentation: 'A ventilator line with its main settings. The numbers are placeholders: replace every one.', insertText: `${'vent'.padEnd(ITEM_COLUMN)}mode \${1:VC}, vt \${2:400} mL, rate \${3:16}, peep \${4:5}, fio2 \${5:0.4}`, isSnippet: true, replace },
+  ];
+  return [...sections, ...snippets];
+}
+
+function timeCompletions(replace: Range): CompletionInfo[] {
+  return [
+    { label: 'day 1 08:00', kind: 'snippet', detail: 'day and clock time', insertText: 'day ${1:1} ${2:08:00}  ${3:label}', isSnippet: true, replace },
+    { label: '08:00', kind: 'snippet', detail: 'clock time', insertText: '${1:08:00}  ${2:label}', isSnippet: true, replace },
+    { label: '+1h', kind: 'snippet', detail: 'interval after the previous timepoint', insertText: '+${1:1h}', isSnippet: true, replace },
+  ];
+}
+
+function shorthandSnippet(section: SectionId, replace: Range): CompletionInfo {
+  const venous = section === 'vbg';
+  return {
+    label: venous ? 'pH/PvCO2/PvO2/HCO3' : 'pH/PaCO2/PaO2/HCO3',
+    kind: 'snippet',
+    detail: 'shorthand gas',
+    documentation: 'pH, PCO2, PO2 and HCO3 in that order. The numbers are placeholders: replace every one.',
+    insertText: venous ? '${1:7.35}/${2:46}/${3:40}/${4:25}' : '${1:7.40}/${2:40}/${3:90}/${4:24}',
+    isSnippet: true,
+    replace,
+  };
+}
+
+/** Field ids stated on the line, except the item at the cursor (the one being typed). */
+function usedFields(section: SectionId, items: readonly ItemNode[], cursor: number): Set<string> {
+  const used = new Set<string>();
+  for (const item of items) {
+    if (item.key && cursor >= item.key.span.start && cursor <= item.key.span.end) continue;
+    const field = fieldFor(section, item.keyName);
+    if (field) used.add(field.id);
+  }
+  return used;
+}
+
+function unitLabel(id: string): string {
+  return id === '%sat' ? '%' : displayUnit(id);
+}
+
+function keyDetail(field: FieldDef): string {
+  if (field.kind === 'word') {
+    const words = [...new Set(Object.values(field.words ?? {}))];
+    return `${field.label} · ${words.slice(0, 4).join(', ')}${words.length > 4 || field.openWords ? ', …' : ''}`;
+  }
+  const first = field.units?.[0];
+  if (field.bare === 'gas') return `${field.label} · mmHg or kPa (bare: the note's gas unit)`;
+  if (field.bare === 'fraction-or-percent') return `${field.label} · fraction or %`;
+  if (!first || first === 'ph') return field.label;
+  return `${field.label} · ${unitLabel(first)}`;
+}
+
+function keyCompletions(section: SectionId, used: ReadonlySet<string>, replace: Range): CompletionInfo[] {
+  return fieldsInSection(section)
+    .filter((f) => !used.has(f.id))
+    .map((f) => ({ label: f.aliases[0] ?? f.id, kind: 'key' as const, detail: keyDetail(f), documentation: f.description, insertText: f.aliases[0] ?? f.id, replace }));
+}
+
+function wordCompletions(field: FieldDef | undefined, replace: Range): CompletionInfo[] {
+  if (!field?.words) return [];
+  const words = [...new Set(Object.values(field.words))];
+  return words.map((w) => ({ label: w, kind: 'word' as const, detail: field.label, insertText: w, replace }));
+}
+
+function unitCompletions(field: FieldDef, replace: Range): CompletionInfo[] {
+  const out: CompletionInfo[] = [];
+  const seen = new Set<string>();
+  (field.units ?? []).forEach((id, i) => {
+    if (id === 'fraction' || id === 'ph') return;
+    const label = unitLabel(id);
+    if (seen.has(label)) return;
+    seen.add(label);
+    out.push({ label, kind: 'unit', detail: `${field.label}${i === 0 ? ' (default unit)' : ''}`, insertText: label, replace });
+  });
+  return out;
+}
+
+/** The unit after a shorthand applies to its two pressures. */
+function shorthandUnitField(section: SectionId, items: readonly ItemNode[]): FieldDef | undefined {
+  const pressure = items.find((i) => i.implied === 'shorthand' && (i.keyName === 'pco2' || i.keyName === 'po2'));
+  return pressure ? fieldFor(section, pressure.keyName) : undefined;
+}
+
+/** Keeps completions whose label holds the typed letters in order (case-insensitive). */
+function narrow(items: CompletionInfo[], typed: string): CompletionInfo[] {
+  if (!typed) return items;
+  const t = typed.toLowerCase();
+  return items.filter((c) => {
+    const label = c.label.toLowerCase();
+    let i = 0;
+    for (const ch of label) if (i < t.length && ch === t[i]) i++;
+    return i === t.length;
+  });
+}

@@ -1,0 +1,225 @@
+/**
+ * Inlay hints: at the end of a line's content (before a trailing comment), the few derived
+ * values that matter for that line, compact: `P/F 178 · A–a 24 (≤ 20)` after a gas,
+ * `ΔP 17 · VT 6.7 mL/kg · Cstat 25` after a vent line with a plateau, `PB 628 mmHg` after a
+ * place line with an altitude, `FiO2 ≈ 0.33 (est.)` after a low-flow oxygen line, and a short
+ * acid–base reading (`resp. acidosis, acute`). A value that uses an input carried forward from
+ * an earlier timepoint ends with `*`; its tooltip names the carried inputs.
+ *
+ * One hint per line and category, in the order of HINT_CATEGORIES; a later hint at the same
+ * position starts with `· ` so that the hints read as one list. To show one more value, add a
+ * row to HINT_PICKS.
+ */
+import type { NoteResult } from '../check-note';
+import type { DerivedValue, Interpretation, Term, TimepointDerivation } from '../derive/model';
+import { formatNumber } from '../util/format';
+import { derivedBody, termText } from './derived-hover';
+import { contentEnd, lineAt } from './locate';
+import { cautionLine, escapeMarkdown, paragraphs } from './markdown';
+import { describeInputOrigin } from '../derive/context';
+import { HINT_CATEGORIES, type HintCategory, type InlayHintInfo, type LineSpan } from './types';
+
+export interface HintOptions {
+  readonly categories: ReadonlySet<HintCategory>;
+}
+
+/** Marks a value that uses an input carried forward from an earlier timepoint. */
+export const CARRIED_MARK = '*';
+
+interface Pick {
+  readonly id: string;
+  /** The compact text; `n` is the number (with the carried mark when it applies). */
+  readonly text: (n: string, d: DerivedValue, all: readonly DerivedValue[]) => string | null;
+}
+
+/** The values shown, by category, in display order. */
+export const HINT_PICKS: Readonly<Record<HintCategory, readonly Pick[]>> = {
+  oxygenation: [
+    { id: 'fio2_estimated', text: (n) => `FiO2 ≈ ${n} (est.)` },
+    { id: 'pf_ratio', text: (n) => `P/F ${n}` },
+    { id: 'pf_ratio_altitude_adjusted', text: (n) => `P/F adj. ${n}` },
+    {
+      id: 'aa_gradient',
+      text: (n, _d, all) => {
+        const upper = all.find((v) => v.id === 'aa_gradient_upper_normal');
+        return upper ? `A–a ${n} (≤ ${formatNumber(upper.value, upper.decimals)})` : `A–a ${n}`;
+      },
+    },
+    { id: 'sf_ratio', text: (n) => `S/F ${n}` },
+    { id: 'rox_index', text: (n) => `ROX ${n}` },
+  ],
+  'acid-base': [
+    { id: 'anion_gap_albumin_corrected', text: (n) => `AG ${n} (corr.)` },
+    { id: 'anion_gap', text: (n, _d, all) => (all.some((v) => v.id === 'anion_gap_albumin_corrected') ? null : `AG ${n}`) },
+  ],
+  mechanics: [
+    { id: 'driving_pressure', text: (n) => `ΔP ${n}` },
+    { id: 'vt_per_kg_pbw', text: (n) => `VT ${n} mL/kg` },
+    { id: 'compliance_static', text: (n) => `Cstat ${n}` },
+  ],
+  atmosphere: [
+    // Only after the place line that gives the altitude (a stated pressure needs no hint).
+    { id: 'barometric', text: (n, d) => {
+      const input = d.inputs[0];
+      return input?.fieldId === 'altitude' && input.origin.kind === 'here' && input.origin.line === d.line ? `PB ${n} mmHg` : null;
+    } },
+  ],
+  transport: [
+    { id: 'cao2', text: (n) => `CaO2 ${n}` },
+    { id: 'do2', text: (n) => `DO2 ${n}` },
+  ],
+};
+
+/** Derived ids shown in the tooltip of the acid–base reading, when present on its line. */
+const ACID_BASE_DETAIL = ['paco2_expected', 'hco3_expected_acute', 'hco3_expected_chronic'];
+
+/** Id listed for the acid–base reading in `derivedIds`. */
+export const ACID_BASE_READING_ID = 'interpretation:acid-base';
+
+interface Entry {
+  readonly label: string;
+  readonly values: readonly DerivedValue[];
+  readonly reading: Interpretation | null;
+  readonly derivation: TimepointDerivation;
+}
+
+export function inlayHints(result: NoteResult, lines: LineSpan, options: HintOptions): InlayHintInfo[] {
+  const byLine = new Map<number, Map<HintCategory, Entry[]>>();
+  const add = (line: number, category: HintCategory, entry: Entry) => {
+    const cats = byLine.get(line) ?? new Map<HintCategory, Entry[]>();
+    byLine.set(line, cats);
+    const list = cats.get(category) ?? [];
+    cats.set(category, list);
+    list.push(entry);
+  };
+  const inRange = (line: number | null): line is number => line !== null && line >= lines.start && line <= lines.end;
+
+  for (const derivation of result.analysis.derivations) {
+    const all = derivation.derived;
+    for (const category of HINT_CATEGORIES) {
+      if (!options.categories.has(category)) continue;
+      if (category === 'acid-base') {
+        for (const reading of derivation.interpretations) {
+          if (reading.topic !== 'acid-base' || !reading.notable || !inRange(reading.line)) continue;
+          const label = acidBaseLabel(reading.text);
+          if (!label) continue;
+          const detail = all.filter((d) => ACID_BASE_DETAIL.includes(d.id) && d.line === reading.line);
+          add(reading.line, category, { label, values: detail, reading, derivation });
+        }
+      }
+      for (const pick of HINT_PICKS[category]) {
+        for (const d of all) {
+          if (d.id !== pick.id || !inRange(d.line)) continue;
+          const n = `${formatNumber(d.value, d.decimals)}${d.usesCarried ? CARRIED_MARK : ''}`;
+          const label = pick.text(n, d, all.filter((v) => v.line === d.line));
+          if (label) add(d.line, category, { label, values: [d], reading: null, derivation });
+        }
+      }
+    }
+  }
+
+  const hints: InlayHintInfo[] = [];
+  for (const line of [...byLine.keys()].sort((a, b) => a - b)) {
+    const node = lineAt(result, line);
+    if (!node) continue;
+    const position = { line, character: contentEnd(node) };
+    const cats = byLine.get(line)!;
+    let first = true;
+    for (const category of HINT_CATEGORIES) {
+      const entries = cats.get(category);
+      if (!entries || entries.length === 0) continue;
+      const label = entries.map((e) => e.label).join(' · ');
+      hints.push({
+        position,
+        label: first ? label : `· ${label}`,
+        tooltipMarkdown: tooltip(entries),
+        category,
+        derivedIds: entries.flatMap((e) => (e.reading ? [ACID_BASE_READING_ID, ...e.values.map((v) => v.id)] : e.values.map((v) => v.id))),
+        paddingLeft: true,
+      });
+      first = false;
+    }
+  }
+  return hints;
+}
+
+function tooltip(entries: readonly Entry[]): string {
+  const parts: string[] = [];
+  for (const e of entries) {
+    if (e.reading) parts.push(`**Acid–base reading**: ${escapeMarkdown(e.reading.text)}`);
+    for (const d of e.values) {
+      const carried = carriedInputs(d, e.derivation);
+      const mark = carried.length > 0
+        ? `${escapeMarkdown(CARRIED_MARK)} ${escapeMarkdown(d.short)} uses ${carried.length === 1 ? 'a value' : 'values'} carried forward from an earlier timepoint:\n${carried.map((t) => `- ${escapeMarkdown(termText(t))} — ${escapeMarkdown(describeInputOrigin(t.origin))}`).join('\n')}`
+        : null;
+      parts.push(paragraphs([derivedBody(d, { carriedSentence: mark === null }), mark]));
+    }
+  }
+  return paragraphs([parts.join('\n\n---\n\n'), cautionLine()]);
+}
+
+/** The carried-forward inputs behind a derived value, also through other derived values. */
+export function carriedInputs(d: DerivedValue, derivation: TimepointDerivation): Term[] {
+  const out: Term[] = [];
+  const seen = new Set<string>();
+  const visit = (value: DerivedValue, depth: number) => {
+    if (depth > 8) return;
+    for (const t of value.inputs) {
+      if (t.origin.kind === 'carried') {
+        const key = `${t.fieldId ?? t.name}@${t.origin.line}`;
+        if (!seen.has(key)) {
+          seen.add(key);
+          out.push(t);
+        }
+      } else if (t.origin.kind === 'derived') {
+        const id = t.origin.id;
+        const inner = derivation.derived.find((v) => v.id === id);
+        if (inner?.usesCarried) visit(inner, depth + 1);
+      }
+    }
+  };
+  visit(d, 0);
+  return out;
+}
+
+// ── compact acid–base reading ───────────────────────────────────────────
+
+const ABBREVIATION: Readonly<Record<string, string>> = { metabolic: 'met.', respiratory: 'resp.' };
+
+function disorder(kind: string, direction: string): string {
+  return `${ABBREVIATION[kind.toLowerCase()] ?? kind} ${direction.toLowerCase()}`;
+}
+
+/**
+ * A compact form of an acid–base reading, built from its classification words:
+ * `resp. acidosis, acute`, `met. acidosis, high AG + resp. alkalosis`, `mixed acidosis`.
+ * Null when the reading names no disorder.
+ */
+export function acidBaseLabel(text: string): string | null {
+  const first = text.split(';')[0] ?? '';
+  let label: string | null = null;
+  const mixed = /mixed metabolic and respiratory (acidosis|alkalosis)/i.exec(first);
+  const single = /(fully compensated )?(?:(acute|chronic) )?(metabolic|respiratory) (acidosis|alkalosis)/i.exec(first);
+  if (/undetermined/i.test(first)) label = 'acid–base unclear';
+  else if (mixed) label = `mixed ${mixed[1]!.toLowerCase()}`;
+  else if (single) {
+    label = disorder(single[3]!, single[4]!);
+    if (single[2]) label += `, ${single[2].toLowerCase()}`;
+    if (single[1]) label += ', compensated';
+    if (/high and normal anion-gap/i.test(first)) label += ', mixed AG';
+    else if (/high anion gap/i.test(first)) label += ', high AG';
+    else if (/normal anion gap/i.test(first)) label += ', normal AG';
+    if (/between the acute and chronic/i.test(text)) label += ', acute on chronic?';
+  } else if (/normal acid–base/i.test(first)) label = 'normal pH';
+  if (label === null) return null;
+  const extra: string[] = [];
+  const additional = /suspected additional ([^;.]+)/i.exec(text);
+  if (additional?.[1]) {
+    for (const m of additional[1].matchAll(/(metabolic|respiratory) (acidosis|alkalosis)/gi)) extra.push(disorder(m[1]!, m[2]!));
+  }
+  for (const m of text.matchAll(/suspect an added (respiratory|metabolic) (acidosis|alkalosis|disorder)/gi)) {
+    const added = m[2]!.toLowerCase() === 'disorder' ? `${ABBREVIATION[m[1]!.toLowerCase()] ?? m[1]!} disorder?` : `${disorder(m[1]!, m[2]!)}?`;
+    if (!extra.some((e) => added.startsWith(e))) extra.push(added);
+  }
+  return [label, ...extra].join(' + ');
+}

@@ -1,0 +1,247 @@
+/**
+ * Hovers: what the note says at a position, and what the core made of it.
+ * - a section word: what the section holds, whether it carries forward, its keys;
+ * - a key, value or unit: the field, the value as read and in the other unit system, the unit
+ *   it was read in (written or implied), where it came from, what it feeds, LOINC, carrying;
+ * - a timepoint line: its time, the values carried into it, derived values and readings.
+ * Hovers with clinical content end with the caution line.
+ */
+import type { NoteResult } from '../check-note';
+import type { StatedValue, Timepoint } from '../analysis/model';
+import { displayUnit } from '../analysis/read-value';
+import type { DerivedValue, TimepointDerivation } from '../derive/model';
+import { derivedDef } from '../derive/registry';
+import { fieldFor, fieldsInSection, type FieldDef } from '../fields/registry';
+import { sectionById, type SectionId } from '../fields/sections';
+import { describeInput, formatAlternative, formatStated } from '../present';
+import type { SectionLine, TimepointLine } from '../syntax/tree';
+import type { Position } from '../types';
+import { formatNumber, formatShort } from '../util/format';
+import { derivedValueText } from './derived-hover';
+import { allStated, contentEnd, contentStart, isValidPosition, itemAt, lineAt, lineRange, spanContains, statedOf, timepointOfLine, type ItemHit } from './locate';
+import { cautionLine, code, escapeMarkdown, paragraphs } from './markdown';
+import type { HoverInfo } from './types';
+
+export { derivedHover } from './derived-hover';
+
+export function hoverAt(result: NoteResult, position: Position): HoverInfo | null {
+  if (!isValidPosition(position)) return null;
+  const node = lineAt(result, position.line);
+  if (!node) return null;
+  const ch = position.character;
+  if (ch > node.text.length) return null;
+  if (node.comment && ch >= node.comment.span.start && !(ch === node.comment.span.start && ch === contentEnd(node))) return null;
+  if (node.kind === 'timepoint') {
+    const start = contentStart(node);
+    const end = contentEnd(node);
+    if (ch < start || ch > end) return null;
+    return timepointHover(result, node, start, end);
+  }
+  if (node.kind !== 'section') return null;
+  if (spanContains(node.sectionToken.span, ch)) {
+    return { range: lineRange(node.line, node.sectionToken.span.start, node.sectionToken.span.end), markdown: sectionMarkdown(node.section) };
+  }
+  const hit = itemAt(node, ch);
+  if (!hit) return null;
+  const markdown = fieldMarkdown(result, node, hit);
+  return markdown ? { range: lineRange(node.line, hit.span.start, hit.span.end), markdown } : null;
+}
+
+// ── sections ────────────────────────────────────────────────────────────
+
+const KIND_WORDS = {
+  header: 'Header values hold for the whole note until restated.',
+  setting: 'Settings carry forward to later timepoints until restated.',
+  measure: 'Measurements belong to their timepoint and do not carry forward.',
+  prose: 'Free text; not read for values.',
+} as const;
+
+export function sectionMarkdown(id: SectionId): string {
+  const section = sectionById(id);
+  const aliases = section.aliases.length > 0 ? ` (also written ${section.aliases.map(code).join(', ')})` : '';
+  const keys = fieldsInSection(id).map((f) => `${code(f.aliases[0] ?? f.id)} ${escapeMarkdown(f.label)}`);
+  return paragraphs([
+    `**${code(id)} line**${aliases}`,
+    escapeMarkdown(section.description),
+    KIND_WORDS[section.kind],
+    keys.length > 0 ? `Keys: ${keys.join(' · ')}` : null,
+  ]);
+}
+
+// ── fields ──────────────────────────────────────────────────────────────
+
+function fieldMarkdown(result: NoteResult, node: SectionLine, hit: ItemHit): string | null {
+  const field = fieldFor(node.section, hit.item.keyName);
+  if (!field) {
+    const keys = fieldsInSection(node.section).map((f) => code(f.aliases[0] ?? f.id));
+    return paragraphs([`${code(hit.item.key?.text ?? hit.item.keyName)} is not a key of ${code(node.section)} lines.`, keys.length > 0 ? `Keys: ${keys.join(', ')}` : null]);
+  }
+  const stated = statedOf(result, node.line, hit.item);
+  const keyWords = hit.item.implied === 'shorthand'
+    ? `the ${shorthandPosition(hit.item.keyName)} number of the shorthand gas`
+    : hit.item.implied === 'device' ? 'the device, first on the oxygen line'
+      : hit.item.implied === 'device-flow' ? 'the number after the device'
+        : `${code(hit.item.key?.text ?? field.aliases[0] ?? field.id)}`;
+  const head = `**${escapeMarkdown(field.label)}** — ${keyWords} on this ${code(node.section)} line`;
+  const parts: (string | null)[] = [head, escapeMarkdown(field.description)];
+  if (stated) {
+    parts.push(valueText(stated), unitText(result, stated, field), originText(result, stated), usableText(stated), feedsText(result, stated));
+  } else if (hit.item.value) {
+    parts.push(`${code(hit.item.value.text)} could not be read as ${escapeMarkdown(field.label)}.`);
+  }
+  parts.push(carryText(field, node.section));
+  if (field.loinc) parts.push(`LOINC ${field.loinc.code} — ${escapeMarkdown(field.loinc.display)}${field.loinc.fromMemory ? ' (code recalled, not checked against the LOINC table)' : ''}`);
+  parts.push(cautionLine());
+  return paragraphs(parts);
+}
+
+function shorthandPosition(key: string): string {
+  return key === 'ph' ? 'first' : key === 'pco2' ? 'second' : key === 'po2' ? 'third' : 'fourth';
+}
+
+function alternativeText(s: StatedValue): string | null {
+  if (s.unit === 'fraction' && s.value !== null) return `${formatShort(s.value * 100, 1)} %`;
+  return formatAlternative(s);
+}
+
+function valueText(s: StatedValue): string {
+  if (s.word !== null) return `Value: **${escapeMarkdown(s.word)}**`;
+  if (s.value === null && !s.parts) return `Value: ${code(s.item.value?.text ?? '')} (not read)`;
+  const shown = formatStated(s);
+  const alt = alternativeText(s);
+  const asFraction = s.unit === 'fraction' ? ' (a fraction)' : '';
+  return `Value: **${escapeMarkdown(shown)}**${asFraction}${alt ? ` = ${escapeMarkdown(alt)}` : ''}`;
+}
+
+function unitText(result: NoteResult, s: StatedValue, field: FieldDef): string | null {
+  if (s.word !== null || s.unit === 'ph') return null;
+  if (!s.readUnit) return s.item.unit ? `Unit ${code(s.item.unit.text)} could not be read for ${escapeMarkdown(field.label)}.` : null;
+  const read = s.readUnit === 'fraction' ? 'a fraction' : displayUnit(s.readUnit);
+  if (!s.unitImplied) return `Written in ${escapeMarkdown(read)}.`;
+  let why = "the field's default unit";
+  if (field.bare === 'gas') {
+    const source = gasUnitLine(result, s.line);
+    why = source === null ? 'the default gas unit (no `units gas` line before it)' : `the note's gas unit (${code(`units gas`)}, line ${source + 1})`;
+  } else if (field.bare === 'fraction-or-percent') {
+    why = 'a bare number up to 1 is a fraction, above 1 a percentage';
+  }
+  return `No unit written: read in ${escapeMarkdown(read)} — ${why}.`;
+}
+
+function gasUnitLine(result: NoteResult, line: number): number | null {
+  let found: number | null = null;
+  for (const s of allStated(result)) if (s.fieldId === 'gas_unit' && s.word !== null && s.line < line && (found === null || s.line > found)) found = s.line;
+  return found;
+}
+
+function timepointName(tp: Timepoint): string {
+  return `‘${escapeMarkdown(tp.label)}’${tp.time.minutes !== null ? ` (${clockText(tp.time.minutes)})` : ''}`;
+}
+
+function originText(result: NoteResult, s: StatedValue): string {
+  const tp = timepointOfLine(result, s.line);
+  if (!tp || result.analysis.timeline.header.includes(s)) return `From the header, line ${s.line + 1}.`;
+  const inForce = tp.values.get(s.fieldId);
+  const replaced = inForce && inForce.stated !== s && inForce.stated.section === s.section && inForce.origin.kind === 'here'
+    ? ` A later value at this timepoint replaces it (line ${inForce.stated.line + 1}).`
+    : '';
+  return `Stated on line ${s.line + 1}, at timepoint ${timepointName(tp)}.${replaced}`;
+}
+
+function usableText(s: StatedValue): string | null {
+  if (s.usable) return null;
+  if (s.unitDoubt) return `Not used in calculations: implausible in ${escapeMarkdown(displayUnit(s.readUnit ?? ''))}, ordinary in ${escapeMarkdown(displayUnit(s.unitDoubt))} — write the unit.`;
+  if (!s.readUnit && s.word === null) return 'Not used in calculations: the unit could not be read.';
+  if (s.word === null) return 'Not used in calculations: the value is outside what is possible.';
+  return 'Not used in calculations: the word is not known.';
+}
+
+function derivationOf(result: NoteResult, tp: Timepoint): TimepointDerivation | null {
+  return result.analysis.derivations.find((d) => d.timepoint === tp.index) ?? null;
+}
+
+function feedsText(result: NoteResult, s: StatedValue): string | null {
+  const tp = timepointOfLine(result, s.line);
+  if (!tp) return null;
+  const derivation = derivationOf(result, tp);
+  if (!derivation) return null;
+  const uses = derivation.derived.filter((d) => d.inputs.some((t) => t.fieldId === s.fieldId && t.origin.kind !== 'derived' && t.origin.kind !== 'default' && t.origin.line === s.line));
+  if (uses.length === 0) return null;
+  return `Used here for: ${uses.map((d) => `${escapeMarkdown(d.short)} ${escapeMarkdown(derivedValueText(d))}`).join(' · ')}`;
+}
+
+function carryText(field: FieldDef, section: SectionId): string {
+  const kind = sectionById(section).kind;
+  if (kind === 'header') return section === 'place' ? 'Carries forward: yes, until a later `place` line replaces the place.' : 'Carries forward: yes, for the whole note until restated.';
+  if (kind === 'setting' && !field.reading) {
+    return section === 'oxygen'
+      ? 'Carries forward: yes, until the next `oxygen` line (which replaces it) or a `vent` line.'
+      : 'Carries forward: yes, until restated (a new `mode` keeps only PEEP and FiO2), or until an `oxygen` line.';
+  }
+  return field.reading ? 'Carries forward: no — a reading belongs to its timepoint.' : 'Carries forward: no — a measurement belongs to its timepoint.';
+}
+
+// ── timepoints ──────────────────────────────────────────────────────────
+
+/** `day 2, 08:00`: minutes since day 1 00:00 as a day and clock. */
+export function clockText(minutes: number): string {
+  if (!Number.isFinite(minutes)) return 'time unknown';
+  const whole = Math.round(minutes);
+  const day = Math.floor(whole / 1440) + 1;
+  const inDay = whole - (day - 1) * 1440;
+  const h = Math.floor(inDay / 60);
+  const m = inDay % 60;
+  return `day ${day}, ${String(h).padStart(2, '0')}:${String(m).padStart(2, '0')}`;
+}
+
+function timeParagraph(node: TimepointLine, tp: Timepoint | null): string {
+  const t = tp?.time;
+  if (!node.time || !t || (t.minutes === null && t.day === null)) {
+    return node.time?.kind === 'offset' ? 'Time: unknown — an offset after a timepoint whose time is unknown.' : 'Time: unknown.';
+  }
+  if (node.time.kind === 'day' && t.day !== null) return `Time: day ${t.day}, no time of day.`;
+  if (t.minutes === null) return `Time: day ${t.day ?? '?'}.`;
+  const since = `${formatNumber(t.minutes, 0)} min after day 1 00:00`;
+  const offset = node.time.kind === 'offset' && node.time.minutes !== null ? `${formatNumber(node.time.minutes, 0)} min after the previous timepoint; ` : '';
+  return `Time: ${clockText(t.minutes)} (${offset}${since}).`;
+}
+
+function derivedLine(d: DerivedValue): string {
+  const marks = [d.estimate ? 'estimate' : null, d.usesCarried ? 'uses a carried value' : null].filter((m): m is string => m !== null);
+  return `- ${escapeMarkdown(d.label)} (${escapeMarkdown(d.short)}): **${escapeMarkdown(derivedValueText(d))}**${marks.length > 0 ? ` — _${marks.join(', ')}_` : ''}`;
+}
+
+/** `add fio2 to get PiO2, PAO2, P/F`: missing values grouped by what to add. */
+function missingGroups(d: TimepointDerivation): string[] {
+  const groups = new Map<string, string[]>();
+  for (const m of d.missing) {
+    const key = m.needs.join(' and ');
+    const what = derivedDef(m.id)?.short ?? m.label;
+    const list = groups.get(key);
+    if (list) list.push(what);
+    else groups.set(key, [what]);
+  }
+  return [...groups].map(([needs, what]) => `add ${needs} to get ${what.join(', ')}`);
+}
+
+function timepointHover(result: NoteResult, node: TimepointLine, start: number, end: number): HoverInfo {
+  const tp = result.analysis.timeline.timepoints.find((t) => t.line === node.line) ?? null;
+  const title = `**${code(`@ ${node.time ? node.time.text : '?'}`)}**${node.label ? ` — ${escapeMarkdown(node.label.text)}` : ''}`;
+  const parts: (string | null)[] = [title, timeParagraph(node, tp)];
+  if (tp) {
+    const carried = [...tp.values.values()]
+      .filter((v) => v.origin.kind === 'carried' || v.origin.kind === 'header')
+      .sort((a, b) => a.stated.line - b.stated.line || a.stated.item.span.start - b.stated.item.span.start);
+    parts.push(carried.length > 0 ? `**Carried into this timepoint**\n${carried.map((v) => `- ${escapeMarkdown(describeInput(v))}`).join('\n')}` : 'Nothing carried in from earlier timepoints or the header.');
+    const derivation = derivationOf(result, tp);
+    if (derivation) {
+      const shown = derivation.derived.filter((d) => d.id !== 'barometric' || d.inputs[0]?.origin.kind !== 'default');
+      if (shown.length > 0) parts.push(`**Derived here**\n${shown.map(derivedLine).join('\n')}`);
+      if (derivation.interpretations.length > 0) parts.push(`**Readings**\n${derivation.interpretations.map((i) => `- ${escapeMarkdown(i.text)}`).join('\n')}`);
+      const missing = missingGroups(derivation);
+      if (missing.length > 0) parts.push(`**Could be derived**\n${missing.map((m) => `- ${escapeMarkdown(m)}`).join('\n')}`);
+    }
+  }
+  parts.push(cautionLine());
+  return { range: lineRange(node.line, start, end), markdown: paragraphs(parts) };
+}

@@ -1,0 +1,95 @@
+/**
+ * Finding things at a position: the line node, the item and the part of it (key, value,
+ * unit) under the cursor, the stated value read from an item, and the timepoint a line is in.
+ * Shared by hovers, completions and code actions.
+ */
+import type { NoteResult } from '../check-note';
+import type { StatedValue, Timepoint } from '../analysis/model';
+import { isBlank } from '../syntax/lexer';
+import type { ItemNode, LineNode, SectionLine, Span } from '../syntax/tree';
+import type { Position, Range } from '../types';
+
+/** A position the service can answer for: whole, non-negative numbers. */
+export function isValidPosition(p: Position): boolean {
+  return Number.isInteger(p.line) && Number.isInteger(p.character) && p.line >= 0 && p.character >= 0;
+}
+
+export function lineAt(result: NoteResult, line: number): LineNode | null {
+  if (!Number.isInteger(line) || line < 0) return null;
+  return result.analysis.tree.lines[line] ?? null;
+}
+
+/** Offset where the line's content ends: before a trailing comment and the blanks before it. */
+export function contentEnd(node: LineNode): number {
+  let end = node.comment ? node.comment.span.start : node.text.length;
+  while (end > 0 && isBlank(node.text.charCodeAt(end - 1))) end--;
+  return end;
+}
+
+/** Offset where the line's content starts (after leading blanks). */
+export function contentStart(node: LineNode): number {
+  let i = 0;
+  while (i < node.text.length && isBlank(node.text.charCodeAt(i))) i++;
+  return i;
+}
+
+export function inComment(node: LineNode, character: number): boolean {
+  return node.comment !== null && character > node.comment.span.start;
+}
+
+export type ItemPart = 'key' | 'value' | 'unit';
+
+export interface ItemHit {
+  readonly item: ItemNode;
+  readonly part: ItemPart;
+  readonly span: Span;
+}
+
+function contains(span: Span, ch: number, inclusiveEnd: boolean): boolean {
+  return ch >= span.start && (inclusiveEnd ? ch <= span.end : ch < span.end);
+}
+
+/**
+ * The key, value or unit under a character: a character inside a token wins; else the token
+ * that ends right before the cursor (a cursor just after `po2`).
+ */
+export function itemAt(node: SectionLine, character: number): ItemHit | null {
+  for (const inclusive of [false, true]) {
+    for (const item of node.items) {
+      const parts: [ItemPart, Span | undefined][] = [['key', item.key?.span], ['value', item.value?.span], ['unit', item.unit?.span]];
+      for (const [part, span] of parts) if (span && contains(span, character, inclusive)) return { item, part, span };
+    }
+  }
+  return null;
+}
+
+export function spanContains(span: Span, character: number, inclusiveEnd = true): boolean {
+  return contains(span, character, inclusiveEnd);
+}
+
+/** Every stated value of the note, header first, in reading order. */
+export function allStated(result: NoteResult): StatedValue[] {
+  const t = result.analysis.timeline;
+  return [...t.header, ...t.timepoints.flatMap((tp) => tp.stated)];
+}
+
+/** The stated value read from an item (null when the item could not be read). */
+export function statedOf(result: NoteResult, line: number, item: ItemNode): StatedValue | null {
+  for (const s of allStated(result)) if (s.line === line && (s.item === item || (s.item.span.start === item.span.start && s.item.keyName === item.keyName))) return s;
+  return null;
+}
+
+/** The timepoint whose lines include `line` (null for header lines and lines before any timepoint). */
+export function timepointOfLine(result: NoteResult, line: number): Timepoint | null {
+  const t = result.analysis.timeline;
+  if (t.header.some((s) => s.line === line)) return null;
+  for (let i = t.timepoints.length - 1; i >= 0; i--) {
+    const tp = t.timepoints[i]!;
+    if (line >= tp.startLine && line <= tp.endLine) return tp;
+  }
+  return null;
+}
+
+export function lineRange(line: number, start: number, end: number): Range {
+  return { start: { line, character: start }, end: { line, character: end } };
+}

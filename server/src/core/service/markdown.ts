@@ -1,0 +1,27 @@
+/**
+ * Small markdown helpers for hovers and tooltips: escaping text that comes from the note, and
+ * the caution line that ends every hover with clinical content.
+ */
+import { CAUTION } from './types';
+
+/** Escapes characters markdown would read as formatting (text from the note is never markup). */
+export function escapeMarkdown(text: string): string {
+  return text.replace(/[\\`*_[\]<>|~]/g, (c) => `\\${c}`);
+}
+
+/** Inline code that survives backticks inside the text. */
+export function code(text: string): string {
+  const fence = text.includes('`') ? '``' : '`';
+  const pad = text.startsWith('`') || text.endsWith('`') ? ' ' : '';
+  return `${fence}${pad}${text}${pad}${fence}`;
+}
+
+/** The caution paragraph. */
+export function cautionLine(): string {
+  return `_${CAUTION}_`;
+}
+
+/** Joins paragraphs with blank lines, dropping empty ones. */
+export function paragraphs(parts: readonly (string | null | undefined | false)[]): string {
+  return parts.filter((p): p is string => typeof p === 'string' && p.length > 0).join('\n\n');
+}

@@ -1,0 +1,115 @@
+/**
+ * The outline of a note and its folding ranges. Timepoints are the outline: each names its
+ * label, shows its time, spans its lines (trailing blank lines excluded) and holds its section
+ * lines as children. Lines before the first timepoint that describe the patient, the place
+ * and the units form a "header" symbol. Each timepoint spanning more than one line folds.
+ */
+import type { NoteResult } from '../check-note';
+import type { Timepoint } from '../analysis/model';
+import { sectionById } from '../fields/sections';
+import type { LineNode } from '../syntax/tree';
+import { clockText } from './hover';
+import { contentEnd, contentStart } from './locate';
+import type { FoldingRangeInfo, SymbolInfo } from './types';
+
+function isContent(node: LineNode): boolean {
+  return node.kind === 'section' || node.kind === 'timepoint' || node.kind === 'unknown';
+}
+
+/** The last line from `start` to `end` (inclusive) that is not blank (comment lines count). */
+function lastFilledLine(lines: readonly LineNode[], start: number, end: number): number {
+  let last = end;
+  while (last > start && lines[last]?.kind === 'blank' && lines[last]?.comment === null) last--;
+  return last;
+}
+
+function wholeLines(lines: readonly LineNode[], start: number, end: number) {
+  return { start: { line: start, character: 0 }, end: { line: end, character: lines[end]?.text.length ?? 0 } };
+}
+
+function sectionSymbol(node: Extract<LineNode, { kind: 'section' }>): SymbolInfo {
+  const from = node.items[0]?.span.start ?? node.prose?.span.start ?? null;
+  const detail = from === null ? '' : node.text.slice(from, contentEnd(node));
+  const selection = { start: { line: node.line, character: node.sectionToken.span.start }, end: { line: node.line, character: node.sectionToken.span.end } };
+  return {
+    name: node.section,
+    detail,
+    kind: 'section',
+    range: { start: { line: node.line, character: contentStart(node) }, end: { line: node.line, character: Math.max(contentEnd(node), node.sectionToken.span.end) } },
+    selectionRange: selection,
+    children: [],
+  };
+}
+
+function timeDetail(result: NoteResult, tp: Timepoint): string {
+  const node = tp.line === null ? null : result.analysis.tree.lines[tp.line];
+  const written = node?.kind === 'timepoint' && node.time ? node.time.text : null;
+  const computed = tp.time.minutes !== null ? clockText(tp.time.minutes) : tp.time.day !== null ? `day ${tp.time.day}` : null;
+  if (written && computed && written.startsWith('+')) return `${written} (${computed})`;
+  return written ?? computed ?? 'time unknown';
+}
+
+export function documentSymbols(result: NoteResult): SymbolInfo[] {
+  const lines = result.analysis.tree.lines;
+  const timepoints = result.analysis.timeline.timepoints;
+  const symbols: SymbolInfo[] = [];
+
+  // Header: header-section lines before the first timepoint's first line of values.
+  const firstTpLine = timepoints.find((t) => t.line !== null)?.line ?? lines.length;
+  const implicit = timepoints[0]?.line === null ? timepoints[0] : undefined;
+  const implicitStart = implicit ? firstValueLine(lines, firstTpLine) : null;
+  const headerEnd = (implicitStart ?? firstTpLine) - 1;
+  const headerLines = lines.filter((l) => l.line <= headerEnd && l.kind === 'section' && sectionById(l.section).kind === 'header');
+  const firstHeader = lines.find((l) => l.line <= headerEnd && isContent(l));
+  if (headerLines.length > 0 && firstHeader) {
+    const end = lastFilledLine(lines, firstHeader.line, headerEnd);
+    symbols.push({
+      name: 'header',
+      detail: [...new Set(headerLines.map((l) => (l.kind === 'section' ? l.section : '')))].join(', '),
+      kind: 'header',
+      range: wholeLines(lines, firstHeader.line, end),
+      selectionRange: wholeLines(lines, firstHeader.line, firstHeader.line),
+      children: headerLines.map((l) => sectionSymbol(l as Extract<LineNode, { kind: 'section' }>)),
+    });
+  }
+
+  for (const tp of timepoints) {
+    const start = tp.line ?? implicitStart ?? tp.startLine;
+    const end = lastFilledLine(lines, start, Math.max(start, tp.endLine));
+    const children: SymbolInfo[] = [];
+    for (let i = start; i <= end; i++) {
+      const node = lines[i];
+      if (node?.kind === 'section') children.push(sectionSymbol(node));
+    }
+    symbols.push({
+      name: tp.label.trim() || `timepoint ${tp.index + 1}`,
+      detail: timeDetail(result, tp),
+      kind: 'timepoint',
+      range: wholeLines(lines, start, end),
+      selectionRange: wholeLines(lines, start, start),
+      children,
+    });
+  }
+  return symbols;
+}
+
+/** First line before `before` that states measurements or settings (opens the implicit timepoint). */
+function firstValueLine(lines: readonly LineNode[], before: number): number | null {
+  for (const node of lines) {
+    if (node.line >= before) break;
+    if (node.kind === 'section' && (sectionById(node.section).kind === 'measure' || sectionById(node.section).kind === 'setting')) return node.line;
+  }
+  return null;
+}
+
+export function foldingRanges(result: NoteResult): FoldingRangeInfo[] {
+  const lines = result.analysis.tree.lines;
+  const out: FoldingRangeInfo[] = [];
+  const firstTpLine = result.analysis.timeline.timepoints.find((t) => t.line !== null)?.line ?? lines.length;
+  for (const tp of result.analysis.timeline.timepoints) {
+    const start = tp.line ?? firstValueLine(lines, firstTpLine) ?? tp.startLine;
+    const end = lastFilledLine(lines, start, Math.max(start, tp.endLine));
+    if (end > start) out.push({ startLine: start, endLine: end });
+  }
+  return out;
+}

@@ -1,0 +1,88 @@
+/**
+ * Applying editor-neutral text edits to a text, as an editor would: every range refers to the
+ * original text, edits may not overlap, and insertions at one position keep their order.
+ * Lines end at `\n`, `\r\n` or `\r` (as LSP counts them); a character past the end of its line
+ * means the end of the line, a line past the end of the text means the end of the text.
+ */
+import { comparePositions, type Position, type TextEdit } from '../types';
+
+/** Offsets (UTF-16) where each line starts and where its content ends (before its terminator). */
+export interface LineTable {
+  readonly starts: readonly number[];
+  readonly ends: readonly number[];
+}
+
+export function lineTable(text: string): LineTable {
+  const starts: number[] = [0];
+  const ends: number[] = [];
+  const n = text.length;
+  for (let i = 0; i < n; i++) {
+    const c = text.charCodeAt(i);
+    if (c === 0x0a || c === 0x0d) {
+      ends.push(i);
+      if (c === 0x0d && i + 1 < n && text.charCodeAt(i + 1) === 0x0a) i++;
+      starts.push(i + 1);
+    }
+  }
+  ends.push(n);
+  return { starts, ends };
+}
+
+/** The offset of a position, clamped into the text. */
+export function offsetAt(table: LineTable, position: Position): number {
+  const last = table.starts.length - 1;
+  if (position.line < 0) return 0;
+  if (position.line > last) return table.ends[last] ?? 0;
+  const start = table.starts[position.line] ?? 0;
+  const end = table.ends[position.line] ?? start;
+  return Math.min(end, start + Math.max(0, position.character));
+}
+
+export class OverlappingEditsError extends Error {
+  constructor(readonly first: TextEdit, readonly second: TextEdit) {
+    super(`Edits overlap: ${describe(first)} and ${describe(second)}.`);
+    this.name = 'OverlappingEditsError';
+  }
+}
+
+function describe(e: TextEdit): string {
+  const p = (x: Position) => `${x.line + 1}:${x.character + 1}`;
+  return `${p(e.range.start)}–${p(e.range.end)}`;
+}
+
+/**
+ * Applies edits to a text. Throws `OverlappingEditsError` when two edits overlap (touching
+ * edits are fine; two insertions at one position are applied in the order given).
+ */
+export function applyEdits(text: string, edits: readonly TextEdit[]): string {
+  if (edits.length === 0) return text;
+  const table = lineTable(text);
+  const located = edits.map((edit, index) => {
+    const a = offsetAt(table, edit.range.start);
+    const b = offsetAt(table, edit.range.end);
+    if (comparePositions(edit.range.start, edit.range.end) > 0 || b < a) throw new RangeError(`Edit ${describe(edit)} ends before it starts.`);
+    return { edit, index, start: a, end: b };
+  });
+  located.sort((x, y) => x.start - y.start || x.end - y.end || x.index - y.index);
+  let out = '';
+  let at = 0;
+  let previous: (typeof located)[number] | null = null;
+  for (const e of located) {
+    if (previous && e.start < previous.end) throw new OverlappingEditsError(previous.edit, e.edit);
+    out += text.slice(at, e.start) + e.edit.newText;
+    at = e.end;
+    previous = e;
+  }
+  return out + text.slice(at);
+}
+
+/** Whether any two edits overlap (touching edits do not). */
+export function editsOverlap(edits: readonly TextEdit[]): boolean {
+  const sorted = [...edits].sort((a, b) => comparePositions(a.range.start, b.range.start) || comparePositions(a.range.end, b.range.end));
+  for (let i = 1; i < sorted.length; i++) {
+    const prev = sorted[i - 1]!;
+    const cur = sorted[i]!;
+    if (comparePositions(cur.range.start, prev.range.end) < 0) return true;
+  }
+  return false;
+}

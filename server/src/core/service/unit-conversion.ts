@@ -1,0 +1,244 @@
+/**
+ * Rewriting values in another unit: the edits that write one stated value (or a shorthand
+ * gas's two pressures) in a target unit, and `convertNoteUnits`, which writes every gas
+ * pressure of a note in mmHg or kPa and sets the note's `units gas` line to match.
+ *
+ * Rounding: kPa 1 decimal, mmHg 0, FiO2 fraction 2, FiO2 % 0 (1 when needed), °C/°F 1,
+ * g/L 0, g/dL 1. A converted number always gets its unit written, except a fraction.
+ */
+import type { NoteResult } from '../check-note';
+import type { StatedValue } from '../analysis/model';
+import { displayUnit } from '../analysis/read-value';
+import { fieldById, type FieldDef } from '../fields/registry';
+import { convert, unitById, unitsForSpelling } from '../fields/units';
+import { decimalsFor } from '../present';
+import type { ItemNode, LineNode, SectionLine } from '../syntax/tree';
+import type { TextEdit } from '../types';
+import { formatNumber, formatShort } from '../util/format';
+import { ITEM_COLUMN } from './format';
+import { allStated, lineRange } from './locate';
+
+export type GasUnit = 'mmHg' | 'kPa';
+
+/** Unit pairs a value can be rewritten between (canonical ↔ other). */
+const PAIRS: readonly (readonly [string, string])[] = [['mmHg', 'kPa'], ['fraction', '%'], ['C', 'F'], ['g/dL', 'g/L']];
+
+/** The unit a stated value can be rewritten in, other than the one it was read in. */
+export function otherUnit(s: StatedValue): string | null {
+  const field = fieldById(s.fieldId);
+  if (!field || !s.readUnit || s.value === null || field.kind !== 'number') return null;
+  for (const [a, b] of PAIRS) {
+    const other = s.readUnit === a ? b : s.readUnit === b ? a : null;
+    if (other && field.units?.includes(a) && field.units.includes(b)) return other;
+  }
+  return null;
+}
+
+/** How a unit id is written in a note. */
+export function writtenUnit(id: string): string {
+  return id === '%sat' ? '%' : displayUnit(id);
+}
+
+/** A canonical value written as a number in `to`, with that unit's usual decimals. */
+export function numberIn(s: StatedValue, field: FieldDef, to: string): string | null {
+  const canonical = unitById(s.unit ?? '');
+  const target = unitById(to);
+  if (!canonical || !target || s.value === null) return null;
+  const v = convert(s.value, canonical, target);
+  if (v === null) return null;
+  if (to === '%') return formatShort(v, Number.isInteger(Math.round(v * 10) / 10) ? 0 : 1);
+  return formatNumber(v, to === 'mmHg' ? 0 : decimalsFor(to, field.decimals));
+}
+
+/** Whether a written unit token reads as the unit id for this field. */
+function unitReadsAs(text: string, field: FieldDef, id: string): boolean {
+  return unitsForSpelling(text).find((u) => field.units?.includes(u.id))?.id === id;
+}
+
+/**
+ * Edits that write one item's number in `to` and write (or replace, or for a fraction remove)
+ * its unit. Null when the value cannot be converted.
+ */
+export function itemConversionEdits(line: number, s: StatedValue, to: string): TextEdit[] | null {
+  const field = fieldById(s.fieldId);
+  const item = s.item;
+  const value = item.value;
+  if (!field || !value || value.kind !== 'number' || item.implied === 'shorthand') return null;
+  const number = numberIn(s, field, to);
+  if (number === null) return null;
+  const edits: TextEdit[] = [{ range: lineRange(line, value.span.start, value.span.end), newText: number }];
+  if (to === 'fraction') {
+    if (item.unit) edits.push({ range: lineRange(line, value.span.end, item.unit.span.end), newText: '' });
+  } else if (item.unit) {
+    edits.push({ range: lineRange(line, item.unit.span.start, item.unit.span.end), newText: writtenUnit(to) });
+  } else {
+    edits.push({ range: lineRange(line, value.span.end, value.span.end), newText: ` ${writtenUnit(to)}` });
+  }
+  return edits;
+}
+
+/** The stated pressures of a shorthand gas on a line (PCO2 and PO2), with its unit token. */
+export interface ShorthandPressures {
+  readonly node: SectionLine;
+  readonly parts: readonly StatedValue[];
+  readonly unit: ItemNode['unit'];
+  /** End of the whole shorthand group (where a unit is written). */
+  readonly end: number;
+}
+
+export function shorthandPressures(result: NoteResult, node: LineNode): ShorthandPressures | null {
+  if (node.kind !== 'section' || (node.section !== 'abg' && node.section !== 'vbg')) return null;
+  const group = node.items.filter((i) => i.implied === 'shorthand');
+  const last = group[group.length - 1];
+  if (!last?.value) return null;
+  const stated = allStated(result).filter((s) => s.line === node.line && s.item.implied === 'shorthand' && (s.item.keyName === 'pco2' || s.item.keyName === 'po2'));
+  if (stated.length === 0) return null;
+  const unit = group.find((i) => i.unit)?.unit ?? null;
+  return { node, parts: stated, unit, end: last.value.span.end };
+}
+
+/** Edits writing a shorthand gas's pressures in `to` (both numbers and the shared unit). */
+export function shorthandConversionEdits(sh: ShorthandPressures, to: GasUnit): TextEdit[] | null {
+  const line = sh.node.line;
+  const edits: TextEdit[] = [];
+  for (const s of sh.parts) {
+    const field = fieldById(s.fieldId);
+    if (!field || !s.readUnit || !s.item.value) return null;
+    const number = numberIn(s, field, to);
+    if (number === null) return null;
+    edits.push({ range: lineRange(line, s.item.value.span.start, s.item.value.span.end), newText: number });
+  }
+  edits.push(sh.unit
+    ? { range: lineRange(line, sh.unit.span.start, sh.unit.span.end), newText: to }
+    : { range: lineRange(line, sh.end, sh.end), newText: ` ${to}` });
+  return edits;
+}
+
+function isGasPressure(field: FieldDef | undefined): field is FieldDef {
+  return field !== undefined && field.dimension === 'gas-pressure' && (field.units?.includes('kPa') ?? false) && (field.units?.includes('mmHg') ?? false);
+}
+
+/** Lines of `units gas …` items (with a value), in order. */
+function gasUnitItems(result: NoteResult): { line: number; item: ItemNode }[] {
+  const out: { line: number; item: ItemNode }[] = [];
+  for (const node of result.analysis.tree.lines) {
+    if (node.kind !== 'section' || node.section !== 'units') continue;
+    for (const item of node.items) if (item.keyName === 'gas' && item.value) out.push({ line: node.line, item });
+  }
+  return out;
+}
+
+/** Where a new `units gas` line goes: after the leading patient lines, before anything else. */
+function unitsLineInsertion(result: NoteResult): number {
+  const lines = result.analysis.tree.lines;
+  let at = -1;
+  for (const node of lines) {
+    if (node.kind === 'blank') continue;
+    if (node.kind === 'section' && node.section === 'patient') {
+      at = node.line + 1;
+      continue;
+    }
+    return at >= 0 ? at : node.line;
+  }
+  return at >= 0 ? at : lines.length;
+}
+
+/**
+ * Edits that write every gas pressure of the note in `to` (PaO2, PaCO2, venous pressures,
+ * end-tidal CO2, barometric pressure; shorthand gases too) and make the note's `units gas`
+ * say `to`, adding the line when there is none. The note then reads back to the same values,
+ * within rounding. Values whose unit could not be read are left as they are; a bare value
+ * doubted by PN204 keeps its number and gets the unit it was read in written out, so that
+ * nothing changes what it means.
+ */
+export function convertNoteUnits(result: NoteResult, to: GasUnit): TextEdit[] {
+  const edits: TextEdit[] = [];
+  const tree = result.analysis.tree;
+  const unitItems = gasUnitItems(result);
+  for (const { line, item } of unitItems) {
+    const value = item.value!;
+    if (value.text !== to) edits.push({ range: lineRange(line, value.span.start, value.span.end), newText: to });
+  }
+  /** First line whose bare gas values will be read in `to` (after the first `units gas` line). */
+  let bareFrom: number;
+  const firstUnits = unitItems[0];
+  if (firstUnits) {
+    bareFrom = firstUnits.line + 1;
+  } else {
+    const at = unitsLineInsertion(result);
+    const text = `${'units'.padEnd(ITEM_COLUMN)}gas ${to}`;
+    const lastLine = tree.lines.length - 1;
+    if (at > lastLine) {
+      const end = tree.lines[lastLine]?.text.length ?? 0;
+      edits.push({ range: lineRange(lastLine, end, end), newText: `${tree.eol}${text}` });
+    } else {
+      const bom = at === 0 && (tree.lines[0]?.text.startsWith('\uFEFF') ?? false) ? 1 : 0;
+      edits.push({ range: lineRange(at, bom, bom), newText: `${text}${tree.eol}` });
+    }
+    bareFrom = at;
+  }
+  const bareReadsAs = (line: number): GasUnit | null => (line >= bareFrom ? to : null);
+
+  const doneShorthand = new Set<number>();
+  for (const s of allStated(result)) {
+    const field = fieldById(s.fieldId);
+    if (!isGasPressure(field) || !s.readUnit || s.value === null || !s.item.value) continue;
+    if (s.item.implied === 'shorthand') {
+      if (doneShorthand.has(s.line)) continue;
+      doneShorthand.add(s.line);
+      const node = tree.lines[s.line];
+      const sh = node ? shorthandPressures(result, node) : null;
+      if (sh) edits.push(...shorthandEdits(sh, to, bareReadsAs(s.line)));
+      continue;
+    }
+    edits.push(...valueEdits(s, field, to, bareReadsAs(s.line)));
+  }
+  return edits;
+}
+
+function valueEdits(s: StatedValue, field: FieldDef, to: GasUnit, bare: GasUnit | null): TextEdit[] {
+  const item = s.item;
+  const value = item.value!;
+  const line = s.line;
+  if (s.unitDoubt) {
+    // Keep the number as read and write the unit it was read in.
+    return bare === s.readUnit ? [] : [{ range: lineRange(line, value.span.end, value.span.end), newText: ` ${writtenUnit(s.readUnit!)}` }];
+  }
+  const edits: TextEdit[] = [];
+  if (s.readUnit !== to) {
+    const number = numberIn(s, field, to);
+    if (number === null) return [];
+    edits.push({ range: lineRange(line, value.span.start, value.span.end), newText: number });
+  }
+  if (item.unit) {
+    if (!unitReadsAs(item.unit.text, field, to)) edits.push({ range: lineRange(line, item.unit.span.start, item.unit.span.end), newText: to });
+  } else if (bare !== to) {
+    edits.push({ range: lineRange(line, value.span.end, value.span.end), newText: ` ${to}` });
+  }
+  return edits;
+}
+
+function shorthandEdits(sh: ShorthandPressures, to: GasUnit, bare: GasUnit | null): TextEdit[] {
+  const line = sh.node.line;
+  const readUnit = sh.parts[0]?.readUnit ?? null;
+  if (!readUnit || sh.parts.some((p) => p.readUnit !== readUnit || p.value === null)) return [];
+  if (sh.parts.some((p) => p.unitDoubt)) {
+    return sh.unit || bare === readUnit ? [] : [{ range: lineRange(line, sh.end, sh.end), newText: ` ${readUnit}` }];
+  }
+  const edits: TextEdit[] = [];
+  if (readUnit !== to) {
+    for (const s of sh.parts) {
+      const field = fieldById(s.fieldId);
+      const number = field ? numberIn(s, field, to) : null;
+      if (number === null || !s.item.value) return [];
+      edits.push({ range: lineRange(line, s.item.value.span.start, s.item.value.span.end), newText: number });
+    }
+  }
+  const field = sh.parts[0] ? fieldById(sh.parts[0].fieldId) : undefined;
+  if (sh.unit) {
+    if (!field || !unitReadsAs(sh.unit.text, field, to)) edits.push({ range: lineRange(line, sh.unit.span.start, sh.unit.span.end), newText: to });
+  } else if (bare !== to) {
+    edits.push({ range: lineRange(line, sh.end, sh.end), newText: ` ${to}` });
+  }
+  return edits;
+}

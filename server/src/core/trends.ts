@@ -1,0 +1,68 @@
+/**
+ * Series over time for a trend view and a status line: per timepoint, the stated and derived
+ * values worth plotting, and which of them used a carried-forward input.
+ */
+import type { NoteResult } from './check-note';
+import { formatNumber } from './util/format';
+
+export const TREND_FIELDS = ['pao2', 'paco2', 'ph', 'spo2', 'fio2', 'peep'] as const;
+export const TREND_DERIVED = ['pf_ratio', 'driving_pressure', 'compliance_static'] as const;
+export type TrendKey = (typeof TREND_FIELDS)[number] | (typeof TREND_DERIVED)[number];
+
+export interface TrendPointData {
+  readonly timepoint: number;
+  readonly label: string;
+  readonly line: number;
+  readonly minutes: number | null;
+  readonly values: Partial<Record<TrendKey, number>>;
+  readonly carried: TrendKey[];
+}
+
+export function trendPoints(result: NoteResult): TrendPointData[] {
+  const { timeline, derivations } = result.analysis;
+  return timeline.timepoints.map((tp, i) => {
+    const values: Partial<Record<TrendKey, number>> = {};
+    const carried: TrendKey[] = [];
+    for (const id of TREND_FIELDS) {
+      const v = tp.values.get(id);
+      // Measurements are plotted where stated; settings (FiO2, PEEP) also where carried.
+      if (!v || !v.stated.usable || v.stated.value === null) continue;
+      values[id] = v.stated.value;
+      if (v.origin.kind === 'carried' || v.origin.kind === 'header') carried.push(id);
+    }
+    for (const id of TREND_DERIVED) {
+      const d = derivations[i]?.derived.find((x) => x.id === id);
+      if (!d) continue;
+      values[id] = d.value;
+      if (d.usesCarried) carried.push(id);
+    }
+    return { timepoint: tp.index, label: tp.label, line: tp.line ?? tp.startLine, minutes: tp.time.minutes, values, carried };
+  });
+}
+
+/** Key figures of the timepoint that holds a line, for a status bar: `P/F 147 · PaCO2 47 · pH 7.31`. */
+export function timepointSummary(result: NoteResult, line: number): { label: string; text: string; tooltip: string } | null {
+  const { timeline, derivations } = result.analysis;
+  const tp = timeline.timepoints.find((t) => line >= t.startLine && line <= t.endLine);
+  if (!tp) return null;
+  const d = derivations[tp.index];
+  const parts: string[] = [];
+  const pf = d?.derived.find((x) => x.id === 'pf_ratio');
+  if (pf) parts.push(`P/F ${formatNumber(pf.value, 0)}`);
+  const show = (id: string, name: string, decimals: number, unit = '') => {
+    const v = tp.values.get(id);
+    if (v?.stated.usable && v.stated.value !== null && v.origin.kind === 'here') parts.push(`${name} ${formatNumber(v.stated.value, decimals)}${unit}`);
+  };
+  show('ph', 'pH', 2);
+  show('paco2', 'PaCO2', 0);
+  show('pao2', 'PaO2', 0);
+  show('spo2', 'SpO2', 0, '%');
+  const dp = d?.derived.find((x) => x.id === 'driving_pressure');
+  if (dp) parts.push(`ΔP ${formatNumber(dp.value, 0)}`);
+  const readings = (d?.interpretations ?? []).filter((i) => i.notable).map((i) => i.text);
+  return {
+    label: tp.label,
+    text: parts.length > 0 ? parts.join(' · ') : tp.label,
+    tooltip: [`${tp.label}`, ...readings, 'Decision support only — defer to local protocols and licensed practice.'].join('\n'),
+  };
+}

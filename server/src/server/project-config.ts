@@ -1,0 +1,63 @@
+/**
+ * Finds `pneumark.config.json` upward from a note's folder and reads it (cached by path and
+ * modification time). Only `file:` notes have a project file.
+ */
+import { readFileSync, statSync } from 'node:fs';
+import { dirname, join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { CONFIG_FILE_NAME, parseProjectConfig, type ParsedConfig } from '../core/config';
+
+export interface FoundConfig {
+  readonly path: string;
+  readonly config: ParsedConfig;
+}
+
+export class ProjectConfigs {
+  private readonly cache = new Map<string, { mtimeMs: number; size: number; config: ParsedConfig }>();
+
+  forNote(uri: string): FoundConfig | null {
+    if (!uri.startsWith('file:')) return null;
+    let dir: string;
+    try {
+      dir = dirname(fileURLToPath(uri));
+    } catch {
+      return null;
+    }
+    for (let depth = 0; depth < 64; depth++) {
+      const candidate = join(dir, CONFIG_FILE_NAME);
+      const found = this.read(candidate);
+      if (found) return { path: candidate, config: found };
+      const parent = dirname(dir);
+      if (parent === dir) break;
+      dir = parent;
+    }
+    return null;
+  }
+
+  /** Forgets cached files (after a change notification). */
+  invalidate(): void {
+    this.cache.clear();
+  }
+
+  private read(path: string): ParsedConfig | null {
+    let stat;
+    try {
+      stat = statSync(path);
+    } catch {
+      return null;
+    }
+    if (!stat.isFile()) return null;
+    const known = this.cache.get(path);
+    if (known && known.mtimeMs === stat.mtimeMs && known.size === stat.size) return known.config;
+    let config: ParsedConfig;
+    try {
+      config = stat.size > 1024 * 1024
+        ? { settings: {}, hints: {}, problems: [{ message: `${CONFIG_FILE_NAME} is larger than 1 MB; Pneumark uses its defaults.`, range: { start: { line: 0, character: 0 }, end: { line: 0, character: 1 } } }] }
+        : parseProjectConfig(readFileSync(path, 'utf8'));
+    } catch (error) {
+      config = { settings: {}, hints: {}, problems: [{ message: `${CONFIG_FILE_NAME} could not be read (${error instanceof Error ? error.message : String(error)}).`, range: { start: { line: 0, character: 0 }, end: { line: 0, character: 1 } } }] };
+    }
+    this.cache.set(path, { mtimeMs: stat.mtimeMs, size: stat.size, config });
+    return config;
+  }
+}

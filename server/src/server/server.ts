@@ -1,0 +1,289 @@
+/**
+ * The Pneumark language server: wires LSP events to the core and translates results. No
+ * physiology lives here. Analysis is incremental (one NoteSession per open note), debounced
+ * after edits, and never published for a stale version. Every handler is guarded: a failing
+ * request answers empty and is logged, and the server goes on.
+ */
+import { existsSync } from 'node:fs';
+import { join } from 'node:path';
+import { pathToFileURL } from 'node:url';
+import {
+  DidChangeConfigurationNotification,
+  TextDocumentSyncKind,
+  TextDocuments,
+  type Connection,
+  type Diagnostic,
+  type InitializeResult,
+} from 'vscode-languageserver/node';
+import { TextDocument } from 'vscode-languageserver-textdocument';
+import type { NoteResult } from '../core/check-note';
+import { codeActions } from '../core/service/actions';
+import { completionsAt } from '../core/service/complete';
+import { formatEdits } from '../core/service/format';
+import { inlayHints } from '../core/service/hints';
+import { hoverAt } from '../core/service/hover';
+import { documentSymbols, foldingRanges } from '../core/service/symbols';
+import { convertNoteUnits } from '../core/service/unit-conversion';
+import { NoteSession } from '../core/session';
+import { timepointSummary, trendPoints } from '../core/trends';
+import {
+  ANALYSED_NOTIFICATION,
+  CONVERT_UNITS_REQUEST,
+  SUMMARY_REQUEST,
+  TRENDS_REQUEST,
+  type ConvertUnitsParams,
+  type SummaryParams,
+  type SummaryResult,
+  type TrendsParams,
+  type TrendsResult,
+} from '../protocol';
+import { ProjectConfigs } from './project-config';
+import { DEFAULT_CLIENT_SETTINGS, effectiveSettings, readClientSettings, settingsKey, type ClientSettings, type EffectiveSettings } from './settings';
+import { rangesOverlap, toCodeAction, toCompletionItem, toDiagnostic, toDocumentSymbol, toInlayHint } from './translate';
+
+interface NoteState {
+  session: NoteSession;
+  key: string;
+  settings: EffectiveSettings;
+  timer: NodeJS.Timeout | null;
+  /** The version whose diagnostics were last published. */
+  published: number | null;
+  diagnostics: Diagnostic[];
+}
+
+/** Where docs/checks.md lives next to the bundle (dist/../docs), for codeDescription links. */
+function docsUri(): string {
+  const candidates = [join(__dirname, '..', 'docs', 'checks.md'), join(__dirname, '..', '..', '..', 'docs', 'checks.md')];
+  const found = candidates.find((p) => existsSync(p)) ?? candidates[0]!;
+  return pathToFileURL(found).toString();
+}
+
+export function startServer(connection: Connection): void {
+  const documents = new TextDocuments(TextDocument);
+  const notes = new Map<string, NoteState>();
+  const clientSettings = new Map<string, ClientSettings>();
+  const configs = new ProjectConfigs();
+  const configDiagnostics = new Set<string>();
+  const docs = docsUri();
+  let canPullConfiguration = false;
+
+  const log = (message: string) => connection.console.log(message);
+  const guard = <P, R>(name: string, fallback: R, handler: (params: P) => R) => (params: P): R => {
+    try {
+      return handler(params);
+    } catch (error) {
+      connection.console.error(`pneumark: ${name} failed: ${error instanceof Error ? error.stack ?? error.message : String(error)}`);
+      return fallback;
+    }
+  };
+
+  connection.onInitialize((params): InitializeResult => {
+    canPullConfiguration = params.capabilities.workspace?.configuration === true;
+    return {
+      capabilities: {
+        textDocumentSync: { openClose: true, change: TextDocumentSyncKind.Incremental, save: false },
+        hoverProvider: true,
+        completionProvider: { triggerCharacters: [' ', ',', '@'], resolveProvider: false },
+        codeActionProvider: { codeActionKinds: ['quickfix', 'refactor.rewrite', 'source.fixAll'] },
+        documentSymbolProvider: true,
+        foldingRangeProvider: true,
+        documentFormattingProvider: true,
+        documentRangeFormattingProvider: true,
+        inlayHintProvider: { resolveProvider: false },
+      },
+      serverInfo: { name: 'pneumark', version: '0.1.0' },
+    };
+  });
+
+  connection.onInitialized(() => {
+    if (canPullConfiguration) void connection.client.register(DidChangeConfigurationNotification.type, undefined).catch(() => undefined);
+  });
+
+  async function pullClientSettings(uri: string): Promise<ClientSettings> {
+    if (!canPullConfiguration) return clientSettings.get(uri) ?? DEFAULT_CLIENT_SETTINGS;
+    try {
+      const raw: unknown = await connection.workspace.getConfiguration({ scopeUri: uri, section: 'pneumark' });
+      const { settings, problem } = readClientSettings(raw);
+      if (problem) connection.console.warn(`pneumark: settings ignored (${problem}); defaults are used`);
+      clientSettings.set(uri, settings);
+      return settings;
+    } catch {
+      return DEFAULT_CLIENT_SETTINGS;
+    }
+  }
+
+  function settingsFor(uri: string): EffectiveSettings {
+    const found = configs.forNote(uri);
+    publishConfigProblems(found?.path ?? null, found?.config.problems ?? []);
+    return effectiveSettings(clientSettings.get(uri) ?? DEFAULT_CLIENT_SETTINGS, found?.config ?? null);
+  }
+
+  function publishConfigProblems(path: string | null, problems: readonly { message: string; range: Diagnostic['range'] }[]): void {
+    if (!path) return;
+    const uri = pathToFileURL(path).toString();
+    if (problems.length === 0 && !configDiagnostics.has(uri)) return;
+    if (problems.length === 0) configDiagnostics.delete(uri);
+    else configDiagnostics.add(uri);
+    void connection.sendDiagnostics({ uri, diagnostics: problems.map((p) => ({ range: p.range, message: p.message, severity: 1, source: 'pneumark', code: 'config' })) });
+  }
+
+  function stateFor(doc: TextDocument): NoteState {
+    const settings = settingsFor(doc.uri);
+    const key = settingsKey(settings.analysis);
+    let state = notes.get(doc.uri);
+    if (!state) {
+      state = { session: new NoteSession(settings.analysis), key, settings, timer: null, published: null, diagnostics: [] };
+      notes.set(doc.uri, state);
+    } else if (state.key !== key) {
+      state.session.setSettings(settings.analysis);
+      state.key = key;
+    }
+    state.settings = settings;
+    return state;
+  }
+
+  /** The analysis of a document's current text (reusing what did not change); null when too large. */
+  function resultFor(doc: TextDocument, state = stateFor(doc)): NoteResult | null {
+    if (doc.getText().length > state.settings.maxNoteBytes) return null;
+    return state.session.update(doc.getText());
+  }
+
+  function analyseAndPublish(uri: string): void {
+    const doc = documents.get(uri);
+    if (!doc) return;
+    const state = stateFor(doc);
+    const version = doc.version;
+    const started = performance.now();
+    const text = doc.getText();
+    let diagnostics: Diagnostic[];
+    if (text.length > state.settings.maxNoteBytes) {
+      diagnostics = [{
+        range: { start: { line: 0, character: 0 }, end: { line: 0, character: 0 } },
+        severity: 3,
+        source: 'pneumark',
+        code: 'too-large',
+        message: `Pneumark does not analyse notes over ${Math.round(state.settings.maxNoteBytes / 1024)} KB (this one is ${(text.length / 1048576).toFixed(1)} MB): split it into smaller notes, or raise pneumark.maxNoteSizeKb.`,
+      }];
+    } else {
+      const result = state.session.update(text);
+      diagnostics = result.findings.map((f) => toDiagnostic(f, uri, docs));
+    }
+    // A newer version may have arrived while analysing: never publish over it.
+    if (documents.get(uri)?.version !== version) return;
+    state.published = version;
+    state.diagnostics = diagnostics;
+    void connection.sendDiagnostics({ uri, version, diagnostics });
+    void connection.sendNotification(ANALYSED_NOTIFICATION, { uri, version, millis: performance.now() - started });
+  }
+
+  function schedule(uri: string, immediate: boolean): void {
+    const state = notes.get(uri);
+    if (state?.timer) clearTimeout(state.timer);
+    const delay = immediate ? 0 : (state?.settings.debounceMs ?? DEFAULT_CLIENT_SETTINGS.debounceMs);
+    const run = () => {
+      const s = notes.get(uri);
+      if (s) s.timer = null;
+      guard('analysis', undefined, analyseAndPublish)(uri);
+    };
+    if (delay === 0 && immediate) {
+      setImmediate(run);
+      return;
+    }
+    const timer = setTimeout(run, delay);
+    if (state) state.timer = timer;
+  }
+
+  documents.onDidOpen((e) => {
+    void pullClientSettings(e.document.uri).then(() => {
+      guard('open', undefined, () => stateFor(e.document))(undefined);
+      schedule(e.document.uri, true);
+    });
+  });
+  documents.onDidChangeContent((e) => {
+    if (!notes.has(e.document.uri)) return; // the open handler schedules the first analysis
+    schedule(e.document.uri, false);
+  });
+  documents.onDidClose((e) => {
+    const state = notes.get(e.document.uri);
+    if (state?.timer) clearTimeout(state.timer);
+    notes.delete(e.document.uri);
+    clientSettings.delete(e.document.uri);
+    void connection.sendDiagnostics({ uri: e.document.uri, diagnostics: [] });
+  });
+
+  connection.onDidChangeConfiguration(() => {
+    clientSettings.clear();
+    for (const doc of documents.all()) {
+      void pullClientSettings(doc.uri).then(() => schedule(doc.uri, true));
+    }
+  });
+
+  connection.onDidChangeWatchedFiles(() => {
+    configs.invalidate();
+    for (const doc of documents.all()) schedule(doc.uri, true);
+  });
+
+  const withResult = <P extends { textDocument: { uri: string } }, R>(name: string, fallback: R, body: (result: NoteResult, doc: TextDocument, state: NoteState, params: P) => R) =>
+    guard<P, R>(name, fallback, (params) => {
+      const doc = documents.get(params.textDocument.uri);
+      if (!doc) return fallback;
+      const state = stateFor(doc);
+      const result = resultFor(doc, state);
+      return result ? body(result, doc, state, params) : fallback;
+    });
+
+  connection.onHover(withResult('hover', null, (result, _doc, _state, params) => {
+    const hover = hoverAt(result, params.position);
+    return hover ? { range: hover.range, contents: { kind: 'markdown', value: hover.markdown } } : null;
+  }));
+
+  connection.onCompletion(withResult('completion', [], (result, _doc, _state, params) => completionsAt(result, params.position).map(toCompletionItem)));
+
+  connection.languages.inlayHint.on(withResult('inlay hints', [], (result, _doc, state, params) =>
+    inlayHints(result, { start: params.range.start.line, end: params.range.end.line }, { categories: state.settings.hints }).map(toInlayHint)));
+
+  connection.onCodeAction(withResult('code actions', [], (result, doc, state, params) => {
+    const diagnostics = params.context.diagnostics.length > 0 ? params.context.diagnostics : state.diagnostics.filter((d) => rangesOverlap(d.range, params.range));
+    const only = params.context.only;
+    return codeActions(result, params.range)
+      .filter((a) => !only || only.some((k) => a.kind === k || a.kind.startsWith(`${k}.`)))
+      .map((a) => toCodeAction(a, doc.uri, diagnostics));
+  }));
+
+  connection.onDocumentSymbol(withResult('symbols', [], (result) => documentSymbols(result).map(toDocumentSymbol)));
+  connection.onFoldingRanges(withResult('folding', [], (result) => foldingRanges(result).map((r) => ({ startLine: r.startLine, endLine: r.endLine }))));
+
+  connection.onDocumentFormatting(guard('formatting', [], (params: { textDocument: { uri: string } }) => {
+    const doc = documents.get(params.textDocument.uri);
+    return doc ? formatEdits(doc.getText()) : [];
+  }));
+  connection.onDocumentRangeFormatting(guard('range formatting', [], (params: { textDocument: { uri: string }; range: { start: { line: number }; end: { line: number } } }) => {
+    const doc = documents.get(params.textDocument.uri);
+    return doc ? formatEdits(doc.getText(), { start: params.range.start.line, end: params.range.end.line }) : [];
+  }));
+
+  connection.onRequest(TRENDS_REQUEST, guard('trends', null, (params: TrendsParams): TrendsResult | null => {
+    const doc = documents.get(params.uri);
+    if (!doc) return null;
+    const result = resultFor(doc);
+    return { uri: params.uri, version: doc.version, points: result ? trendPoints(result) : [] };
+  }));
+
+  connection.onRequest(SUMMARY_REQUEST, guard('summary', null, (params: SummaryParams): SummaryResult | null => {
+    const doc = documents.get(params.uri);
+    if (!doc) return null;
+    const result = resultFor(doc);
+    return result ? timepointSummary(result, params.line) : null;
+  }));
+
+  connection.onRequest(CONVERT_UNITS_REQUEST, guard('convert units', [], (params: ConvertUnitsParams) => {
+    const doc = documents.get(params.uri);
+    if (!doc || (params.to !== 'mmHg' && params.to !== 'kPa')) return [];
+    const result = resultFor(doc);
+    return result ? convertNoteUnits(result, params.to) : [];
+  }));
+
+  documents.listen(connection);
+  connection.listen();
+  log('pneumark: language server started');
+}

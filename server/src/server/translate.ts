@@ -1,0 +1,103 @@
+/** Translations from the core's editor-neutral results to LSP types. Nothing is computed here. */
+import {
+  CodeActionKind,
+  CompletionItemKind,
+  DiagnosticSeverity,
+  InsertTextFormat,
+  MarkupKind,
+  SymbolKind,
+  type CodeAction,
+  type CompletionItem,
+  type Diagnostic,
+  type DocumentSymbol,
+  type InlayHint,
+} from 'vscode-languageserver/node';
+import type { ActionInfo, CompletionInfo, InlayHintInfo, SymbolInfo } from '../core/service/types';
+import type { Finding, Range, Severity } from '../core/types';
+
+const SEVERITY: Readonly<Record<Severity, DiagnosticSeverity>> = {
+  error: DiagnosticSeverity.Error,
+  warning: DiagnosticSeverity.Warning,
+  information: DiagnosticSeverity.Information,
+  hint: DiagnosticSeverity.Hint,
+};
+
+export function toDiagnostic(f: Finding, uri: string, docsUri: string): Diagnostic {
+  return {
+    range: f.range,
+    severity: SEVERITY[f.severity],
+    code: f.code,
+    codeDescription: { href: `${docsUri}#${f.docAnchor}` },
+    source: 'pneumark',
+    message: f.message,
+    ...(f.related && f.related.length > 0 ? { relatedInformation: f.related.map((r) => ({ location: { uri, range: r.range }, message: r.message })) } : {}),
+  };
+}
+
+export function toInlayHint(h: InlayHintInfo): InlayHint {
+  return {
+    position: h.position,
+    label: h.label,
+    tooltip: { kind: MarkupKind.Markdown, value: h.tooltipMarkdown },
+    paddingLeft: h.paddingLeft ?? true,
+  };
+}
+
+const COMPLETION_KIND: Readonly<Record<CompletionInfo['kind'], CompletionItemKind>> = {
+  section: CompletionItemKind.Module,
+  key: CompletionItemKind.Property,
+  unit: CompletionItemKind.Unit,
+  word: CompletionItemKind.EnumMember,
+  snippet: CompletionItemKind.Snippet,
+};
+
+export function toCompletionItem(c: CompletionInfo, index: number): CompletionItem {
+  return {
+    label: c.label,
+    kind: COMPLETION_KIND[c.kind],
+    ...(c.detail ? { detail: c.detail } : {}),
+    ...(c.documentation ? { documentation: { kind: MarkupKind.Markdown, value: c.documentation } } : {}),
+    insertTextFormat: c.isSnippet ? InsertTextFormat.Snippet : InsertTextFormat.PlainText,
+    ...(c.replace ? { textEdit: { range: c.replace, newText: c.insertText } } : { insertText: c.insertText }),
+    sortText: String(index).padStart(4, '0'),
+  };
+}
+
+const ACTION_KIND: Readonly<Record<ActionInfo['kind'], string>> = {
+  quickfix: CodeActionKind.QuickFix,
+  'refactor.rewrite': CodeActionKind.RefactorRewrite,
+  'source.fixAll': CodeActionKind.SourceFixAll,
+};
+
+export function toCodeAction(a: ActionInfo, uri: string, diagnostics: readonly Diagnostic[]): CodeAction {
+  const related = a.findingCodes ? diagnostics.filter((d) => typeof d.code === 'string' && a.findingCodes!.includes(d.code)) : [];
+  return {
+    title: a.title,
+    kind: ACTION_KIND[a.kind],
+    edit: { changes: { [uri]: a.edits } },
+    ...(related.length > 0 ? { diagnostics: related } : {}),
+    ...(a.preferred ? { isPreferred: true } : {}),
+  };
+}
+
+const SYMBOL_KIND: Readonly<Record<SymbolInfo['kind'], SymbolKind>> = {
+  header: SymbolKind.Namespace,
+  timepoint: SymbolKind.Event,
+  section: SymbolKind.Field,
+};
+
+export function toDocumentSymbol(s: SymbolInfo): DocumentSymbol {
+  return {
+    name: s.name || ' ',
+    detail: s.detail,
+    kind: SYMBOL_KIND[s.kind],
+    range: s.range,
+    selectionRange: s.selectionRange,
+    children: s.children.map(toDocumentSymbol),
+  };
+}
+
+export function rangesOverlap(a: Range, b: Range): boolean {
+  const before = (p: Range['start'], q: Range['start']) => p.line < q.line || (p.line === q.line && p.character < q.character);
+  return !before(a.end, b.start) && !before(b.end, a.start);
+}

@@ -1,0 +1,94 @@
+/**
+ * A real JSON-RPC client for protocol-level tests: starts the bundled server (dist/server.js)
+ * as a child process over stdio, and waits on conditions (diagnostics for a version), never on
+ * fixed sleeps.
+ */
+import { spawn, type ChildProcessWithoutNullStreams } from 'node:child_process';
+import { pathToFileURL } from 'node:url';
+import {
+  createProtocolConnection,
+  StreamMessageReader,
+  StreamMessageWriter,
+  type ProtocolConnection,
+  type PublishDiagnosticsParams,
+  type InitializeResult,
+} from 'vscode-languageserver-protocol/node';
+
+export interface LspClient {
+  readonly connection: ProtocolConnection;
+  readonly process: ChildProcessWithoutNullStreams;
+  readonly initialize: InitializeResult;
+  /** Settings the client answers `workspace/configuration` with (section `pneumark`). */
+  settings: Record<string, unknown>;
+  /** Every publishDiagnostics received, in order. */
+  readonly published: PublishDiagnosticsParams[];
+  stderr: string;
+  open(path: string, text: string, version?: number): string;
+  change(uri: string, text: string, version: number): void;
+  /** Resolves with the first diagnostics for `uri` matching `accept` (already received or future). */
+  diagnostics(uri: string, accept?: (p: PublishDiagnosticsParams) => boolean, timeoutMs?: number): Promise<PublishDiagnosticsParams>;
+  close(): Promise<number | null>;
+}
+
+export async function startClient(settings: Record<string, unknown> = {}): Promise<LspClient> {
+  const child = spawn(process.execPath, ['dist/server.js', '--stdio'], { stdio: 'pipe' });
+  const connection = createProtocolConnection(new StreamMessageReader(child.stdout), new StreamMessageWriter(child.stdin));
+  const published: PublishDiagnosticsParams[] = [];
+  const waiters: { uri: string; accept: (p: PublishDiagnosticsParams) => boolean; resolve: (p: PublishDiagnosticsParams) => void }[] = [];
+  const client: Partial<LspClient> & { settings: Record<string, unknown>; stderr: string } = { settings, stderr: '' };
+  child.stderr.on('data', (d: Buffer) => { client.stderr += d.toString(); });
+  connection.onNotification('textDocument/publishDiagnostics', (p: PublishDiagnosticsParams) => {
+    published.push(p);
+    for (const w of [...waiters]) {
+      if (w.uri === p.uri && w.accept(p)) {
+        waiters.splice(waiters.indexOf(w), 1);
+        w.resolve(p);
+      }
+    }
+  });
+  connection.onNotification('window/logMessage', () => undefined);
+  connection.onNotification('pneumark/analysed', () => undefined);
+  connection.onRequest('workspace/configuration', (params: { items: { section?: string }[] }) => params.items.map(() => client.settings));
+  connection.onRequest('client/registerCapability', () => null);
+  connection.listen();
+  const initialize = await connection.sendRequest<InitializeResult>('initialize', {
+    processId: process.pid,
+    rootUri: null,
+    capabilities: { workspace: { configuration: true, didChangeConfiguration: { dynamicRegistration: true } }, textDocument: { inlayHint: {}, publishDiagnostics: { versionSupport: true } } },
+  });
+  await connection.sendNotification('initialized', {});
+  return Object.assign(client, {
+    connection,
+    process: child,
+    initialize,
+    published,
+    open(path: string, text: string, version = 1) {
+      const uri = path.startsWith('untitled:') ? path : pathToFileURL(path).toString();
+      void connection.sendNotification('textDocument/didOpen', { textDocument: { uri, languageId: 'pneumark', version, text } });
+      return uri;
+    },
+    change(uri: string, text: string, version: number) {
+      void connection.sendNotification('textDocument/didChange', { textDocument: { uri, version }, contentChanges: [{ text }] });
+    },
+    diagnostics(uri: string, accept: (p: PublishDiagnosticsParams) => boolean = () => true, timeoutMs = 15000) {
+      const known = published.find((p) => p.uri === uri && accept(p));
+      if (known) return Promise.resolve(known);
+      return new Promise<PublishDiagnosticsParams>((resolve, reject) => {
+        const timer = setTimeout(() => reject(new Error(`no diagnostics for ${uri} within ${timeoutMs} ms; stderr: ${client.stderr}`)), timeoutMs);
+        waiters.push({ uri, accept, resolve: (p) => { clearTimeout(timer); resolve(p); } });
+      });
+    },
+    async close() {
+      const exited = new Promise<number | null>((resolve) => child.once('exit', (code) => resolve(code)));
+      try {
+        await connection.sendRequest('shutdown');
+        await connection.sendNotification('exit');
+      } catch {
+        child.kill();
+      }
+      const code = await exited;
+      connection.dispose();
+      return code;
+    },
+  }) as LspClient;
+}

@@ -1,0 +1,221 @@
+// Protocol-level tests: the bundled server over a real stdio JSON-RPC connection.
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { pathToFileURL } from 'node:url';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { CodeAction, CompletionItem, Diagnostic, DocumentSymbol, FoldingRange, Hover, InlayHint, TextEdit } from 'vscode-languageserver-protocol';
+import { applyEdits } from '../../server/src/core/service/text-edits';
+import { startClient, type LspClient } from './lsp-client';
+
+const icuPath = join(process.cwd(), 'samples/icu-ventilated-lung-injury.pneu');
+const icu = readFileSync(icuPath, 'utf8');
+
+let client: LspClient;
+beforeAll(async () => {
+  client = await startClient();
+});
+afterAll(async () => {
+  await client?.close();
+});
+
+function codes(diagnostics: readonly Diagnostic[]): string[] {
+  return diagnostics.map((d) => String(d.code));
+}
+
+describe('lifecycle and diagnostics', () => {
+  it('initializes with the features it serves', () => {
+    const caps = client.initialize.capabilities;
+    expect(caps.hoverProvider).toBe(true);
+    expect(caps.inlayHintProvider).toBeTruthy();
+    expect(caps.documentFormattingProvider).toBe(true);
+    expect(caps.completionProvider?.triggerCharacters).toContain('@');
+  });
+
+  it('publishes diagnostics with stable codes and links to their documentation', async () => {
+    const uri = client.open(icuPath, icu);
+    const p = await client.diagnostics(uri);
+    expect(p.version).toBe(1);
+    const dp = p.diagnostics.find((d) => d.code === 'PN405');
+    expect(dp?.range.start.line).toBe(6);
+    expect(dp?.severity).toBe(2);
+    expect(dp?.source).toBe('pneumark');
+    expect(dp?.codeDescription?.href).toMatch(/^file:\/\/.*\/docs\/checks\.md#pn405-driving-pressure-high$/);
+    expect(codes(p.diagnostics)).toContain('PN410');
+  });
+
+  it('answers an edit with diagnostics for the new version, and only the newest of quick edits', async () => {
+    const uri = client.open(join(process.cwd(), 'edit-me.pneu'), '@ 08:00\nvitals hr 80\n');
+    await client.diagnostics(uri, (p) => p.version === 1);
+    client.change(uri, '@ 08:00\nvitals hr 80, spo2 104\n', 2);
+    client.change(uri, '@ 08:00\nvitals hr 80, spo2 105\n', 3);
+    client.change(uri, '@ 08:00\nvitals hr 80, spo2 106\n', 4);
+    const p = await client.diagnostics(uri, (d) => d.version === 4);
+    expect(p.diagnostics[0]?.message).toMatch(/SpO2 106/);
+    expect(client.published.filter((d) => d.uri === uri).map((d) => d.version)).toEqual([1, 4]);
+  });
+
+  it('sweeps the fixture notes: every expected code on its line, nothing else above information', async () => {
+    for (const name of ['tests/fixtures/boundaries.pneu', 'samples/broken-note.pneu']) {
+      const text = readFileSync(name, 'utf8');
+      const uri = client.open(join(process.cwd(), name), text);
+      const p = await client.diagnostics(uri);
+      const byLine = new Map<number, string[]>();
+      for (const d of p.diagnostics) if ((d.severity ?? 1) <= 2) byLine.set(d.range.start.line, [...(byLine.get(d.range.start.line) ?? []), String(d.code)].sort());
+      const expected = new Map<number, string[]>();
+      text.split('\n').forEach((l, i) => {
+        const m = /# expect: ((?:PN\d{3}\s*)+)$/.exec(l);
+        if (m?.[1]) expected.set(i, m[1].trim().split(/\s+/).sort());
+      });
+      expect(Object.fromEntries(byLine), name).toEqual(Object.fromEntries(expected));
+    }
+  });
+});
+
+describe('language features', () => {
+  let uri: string;
+  beforeAll(async () => {
+    uri = client.open(join(process.cwd(), 'features.pneu'), icu);
+    await client.diagnostics(uri);
+  });
+
+  it('hovers a key with the field, both unit systems and a caution', async () => {
+    const line = icu.split('\n').findIndex((l) => l.startsWith('abg       ph 7.29'));
+    const hover = await client.connection.sendRequest<Hover | null>('textDocument/hover', { textDocument: { uri }, position: { line, character: 22 } });
+    const value = typeof hover?.contents === 'object' && 'value' in hover.contents ? hover.contents.value : '';
+    expect(value).toMatch(/PaCO2/);
+    expect(value).toMatch(/kPa/);
+    expect(value).toMatch(/defer to local protocols and licensed practice/);
+  });
+
+  it('shows inlay hints with derived values for the visible range', async () => {
+    const hints = await client.connection.sendRequest<InlayHint[]>('textDocument/inlayHint', { textDocument: { uri }, range: { start: { line: 0, character: 0 }, end: { line: 30, character: 0 } } });
+    const labels = hints.map((h) => (typeof h.label === 'string' ? h.label : h.label.map((p) => p.value).join('')));
+    expect(labels.some((l) => /P\/F 93/.test(l))).toBe(true);
+    expect(labels.some((l) => /ΔP 19/.test(l))).toBe(true);
+    const tooltip = hints[0]?.tooltip;
+    expect(typeof tooltip === 'object' ? tooltip.value : tooltip).toMatch(/defer to local protocols/);
+  });
+
+  it('completes sections at the start of a line and keys after a section', async () => {
+    const text = `${icu}\nvi`;
+    client.change(uri, text, 2);
+    const lastLine = text.split('\n').length - 1;
+    const sections = await client.connection.sendRequest<CompletionItem[]>('textDocument/completion', { textDocument: { uri }, position: { line: lastLine, character: 2 } });
+    expect(sections.map((c) => c.label)).toContain('vitals');
+    const withSection = `${icu}\nvent `;
+    client.change(uri, withSection, 3);
+    const keys = await client.connection.sendRequest<CompletionItem[]>('textDocument/completion', { textDocument: { uri }, position: { line: lastLine, character: 5 } });
+    expect(keys.map((c) => c.label)).toEqual(expect.arrayContaining(['peep', 'vt', 'plateau']));
+    client.change(uri, icu, 4);
+    await client.diagnostics(uri, (p) => p.version === 4);
+  });
+
+  it('offers the quick fix of a finding, and a fix-all of its kind', async () => {
+    const broken = client.open(join(process.cwd(), 'commas.pneu'), '@ 08:00\nabg ph 7,35, pco2 41\nvbg ph 7,31\n');
+    const p = await client.diagnostics(broken);
+    const comma = p.diagnostics.find((d) => d.code === 'PN103')!;
+    const actions = await client.connection.sendRequest<CodeAction[]>('textDocument/codeAction', { textDocument: { uri: broken }, range: comma.range, context: { diagnostics: [comma] } });
+    const fix = actions.find((a) => a.title === 'Write `7.35`');
+    expect(fix?.isPreferred).toBe(true);
+    expect(fix?.diagnostics?.[0]?.code).toBe('PN103');
+    expect(fix?.edit?.changes?.[broken]).toEqual([{ range: comma.range, newText: '7.35' }]);
+    const all = actions.find((a) => a.kind === 'source.fixAll' || /all/i.test(a.title));
+    expect(all?.edit?.changes?.[broken]?.length).toBe(2);
+  });
+
+  it('gives timepoints as the outline, folding ranges, and formatting edits', async () => {
+    const symbols = await client.connection.sendRequest<DocumentSymbol[]>('textDocument/documentSymbol', { textDocument: { uri } });
+    expect(symbols.map((s) => s.name)).toEqual(expect.arrayContaining(['admitted to intensive care, intubated', 'weaning trial']));
+    const folds = await client.connection.sendRequest<FoldingRange[]>('textDocument/foldingRange', { textDocument: { uri } });
+    expect(folds.length).toBeGreaterThanOrEqual(4);
+    const messyText = '@ 08:00   first\nvitals hr 80,rr 12 ,  spo2 97 %\n';
+    const messy = client.open(join(process.cwd(), 'messy.pneu'), messyText);
+    await client.diagnostics(messy);
+    const edits = await client.connection.sendRequest<TextEdit[]>('textDocument/formatting', { textDocument: { uri: messy }, options: { tabSize: 2, insertSpaces: true } });
+    expect(edits.length).toBeGreaterThan(0);
+    expect(applyEdits(messyText, edits)).toBe('@ 08:00  first\nvitals    hr 80, rr 12, spo2 97 %\n');
+  });
+
+  it('answers the trend and summary requests, and unit conversion edits', async () => {
+    const trends = await client.connection.sendRequest<{ points: { values: Record<string, number> }[] }>('pneumark/trends', { uri });
+    expect(trends.points.length).toBe(4);
+    expect(trends.points[0]?.values.pf_ratio).toBeCloseTo(92.5, 1);
+    const summary = await client.connection.sendRequest<{ text: string }>('pneumark/timepointSummary', { uri, line: 8 });
+    expect(summary.text).toMatch(/P\/F 93/);
+    const edits = await client.connection.sendRequest<TextEdit[]>('pneumark/convertUnits', { uri, to: 'kPa' });
+    expect(edits.length).toBeGreaterThan(4);
+  });
+});
+
+describe('settings', () => {
+  it('follows workspace configuration: hint categories and conventions', async () => {
+    const uri = client.open(join(process.cwd(), 'settings.pneu'), '@ 08:00\nvent vt 420, peep 8, plateau 27, fio2 0.5\nabg 7.40/40/90/24.4\n');
+    await client.diagnostics(uri);
+    const before = await client.connection.sendRequest<InlayHint[]>('textDocument/inlayHint', { textDocument: { uri }, range: { start: { line: 0, character: 0 }, end: { line: 5, character: 0 } } });
+    expect(before.some((h) => String(h.label).includes('ΔP'))).toBe(true);
+    client.settings = { hints: { mechanics: false }, hypoxaemiaBelowMmhg: 95 };
+    const count = client.published.length;
+    await client.connection.sendNotification('workspace/didChangeConfiguration', { settings: null });
+    await client.diagnostics(uri, (p) => client.published.indexOf(p) >= count);
+    const after = await client.connection.sendRequest<InlayHint[]>('textDocument/inlayHint', { textDocument: { uri }, range: { start: { line: 0, character: 0 }, end: { line: 5, character: 0 } } });
+    expect(after.some((h) => String(h.label).includes('ΔP'))).toBe(false);
+    const p = client.published.filter((d) => d.uri === uri).at(-1)!;
+    expect(p.diagnostics.some((d) => /hypoxaemia/.test(d.message))).toBe(true);
+    client.settings = {};
+  });
+
+  it('ignores settings of the wrong shape and keeps going with defaults', async () => {
+    client.settings = { gasUnit: 42, hints: 'all', debounceMs: -1 };
+    await client.connection.sendNotification('workspace/didChangeConfiguration', { settings: null });
+    const uri = client.open(join(process.cwd(), 'wrong-shape.pneu'), '@ 08:00\nvitals spo2 104\n');
+    const p = await client.diagnostics(uri);
+    expect(codes(p.diagnostics)).toEqual(['PN306']);
+    client.settings = {};
+  });
+
+  it('reads pneumark.config.json upward from the note, and reports an invalid one on the file itself', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'pneumark-config-'));
+    writeFileSync(join(dir, 'pneumark.config.json'), JSON.stringify({ gasUnit: 'kPa' }));
+    const uri = client.open(join(dir, 'note.pneu'), '@ 08:00\nabg pco2 5.3, po2 12\n');
+    const p = await client.diagnostics(uri);
+    expect(codes(p.diagnostics).filter((c) => c.startsWith('PN2'))).toEqual([]);
+    const bad = mkdtempSync(join(tmpdir(), 'pneumark-config-'));
+    writeFileSync(join(bad, 'pneumark.config.json'), '{ "gasUnit": "bar", "__proto__": { "polluted": true } }');
+    const configUri = pathToFileURL(join(bad, 'pneumark.config.json')).toString();
+    client.open(join(bad, 'note.pneu'), '@ 08:00\nabg pco2 40\n');
+    const configDiagnostics = await client.diagnostics(configUri);
+    expect(configDiagnostics.diagnostics[0]?.message).toMatch(/gasUnit/);
+    expect(({} as Record<string, unknown>).polluted).toBeUndefined();
+  });
+});
+
+describe('robustness', () => {
+  it('answers requests for unknown documents and positions past the end without failing', async () => {
+    const unknown = 'file:///nowhere/never-opened.pneu';
+    expect(await client.connection.sendRequest('textDocument/hover', { textDocument: { uri: unknown }, position: { line: 0, character: 0 } })).toBeNull();
+    expect(await client.connection.sendRequest('textDocument/completion', { textDocument: { uri: unknown }, position: { line: 0, character: 0 } })).toEqual([]);
+    const uri = client.open(join(process.cwd(), 'short.pneu'), 'vitals hr 80');
+    await client.diagnostics(uri);
+    expect(await client.connection.sendRequest('textDocument/hover', { textDocument: { uri }, position: { line: 999, character: 999 } })).toBeNull();
+    expect(await client.connection.sendRequest('textDocument/hover', { textDocument: { uri }, position: { line: 0, character: 9999 } })).toBeNull();
+    const hints = await client.connection.sendRequest('textDocument/inlayHint', { textDocument: { uri }, range: { start: { line: 50, character: 0 }, end: { line: 90, character: 0 } } });
+    expect(hints).toEqual([]);
+  });
+
+  it('degrades gracefully on a 20 MB note, and keeps serving others', async () => {
+    const huge = `${'vitals hr 80, rr 16, spo2 97 %\n'.repeat(680000)}`;
+    expect(huge.length).toBeGreaterThan(20_000_000);
+    const uri = client.open(join(process.cwd(), 'huge.pneu'), huge);
+    const p = await client.diagnostics(uri, undefined, 30000);
+    expect(p.diagnostics).toHaveLength(1);
+    expect(p.diagnostics[0]?.message).toMatch(/does not analyse notes over/);
+    const small = client.open(join(process.cwd(), 'after-huge.pneu'), '@ 08:00\nvitals spo2 104\n');
+    expect(codes((await client.diagnostics(small)).diagnostics)).toEqual(['PN306']);
+  });
+
+  it('exits cleanly on shutdown and exit', async () => {
+    const other = await startClient();
+    expect(await other.close()).toBe(0);
+  });
+});

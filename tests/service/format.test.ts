@@ -1,0 +1,193 @@
+// The formatter: canonical layout, what it never touches, minimal edits, and properties on
+// generated notes (idempotence, never throwing, the meaning of every line kept).
+import { readFileSync, readdirSync } from 'node:fs';
+import { join } from 'node:path';
+import fc from 'fast-check';
+import { describe, expect, it } from 'vitest';
+import { checkNote } from '../../server/src/core/check-note';
+import { isBlank } from '../../server/src/core/syntax/lexer';
+import { parseNote, splitLines } from '../../server/src/core/syntax/parser';
+import type { LineNode } from '../../server/src/core/syntax/tree';
+import { applyEdits, editsOverlap, formatEdits, formatNote } from '../../server/src/core/service';
+import { anyText } from '../helpers/arbitraries';
+import { note } from './cursor';
+import { messyNote } from './note-arbitraries';
+
+export const FORMAT_RUNS = 400;
+
+describe('canonical layout', () => {
+  it('pads the section word so items start in column 10 and joins items with ", "', () => {
+    expect(formatNote('vitals hr 118 rr 26   spo2 89 %')).toBe('vitals    hr 118, rr 26, spo2 89 %');
+    expect(formatNote('  abg ph 7.31,pco2 41 ,po2 71  mmHg')).toBe('abg       ph 7.31, pco2 41, po2 71 mmHg');
+    expect(formatNote('ventilator mode VC vt 430 mL')).toBe('ventilator mode VC, vt 430 mL');
+  });
+
+  it('writes a known glued unit apart, and keeps an unknown one glued', () => {
+    expect(formatNote('vitals spo2 89%, temp 38.4C')).toBe('vitals    spo2 89 %, temp 38.4 C');
+    expect(formatNote('abg po2 71mmhgg')).toBe('abg       po2 71mmhgg');
+  });
+
+  it('keeps the shorthand gas and the oxygen device as written, in their position', () => {
+    expect(formatNote('abg 7.28/56/71/26 kPa  be -2')).toBe('abg       7.28/56/71/26 kPa be -2');
+    expect(formatNote('abg 7.28/56/71/26,be -2')).toBe('abg       7.28/56/71/26, be -2');
+    expect(formatNote('oxygen room   air')).toBe('oxygen    room air');
+    expect(formatNote('o2 cannula 4L/min')).toBe('o2        cannula 4 L/min');
+    expect(formatNote('oxygen niv ipap 18 epap 5')).toBe('oxygen    niv ipap 18, epap 5');
+    expect(formatNote('oxygen venturi,fio2 28 %')).toBe('oxygen    venturi, fio2 28 %');
+  });
+
+  it('writes timepoints as `@ <time>  <label>` and never changes a label', () => {
+    expect(formatNote('@day 1   07:40   arrival  on the ward')).toBe('@ day 1 07:40  arrival  on the ward');
+    expect(formatNote('  @+2h30')).toBe('@ +2h30');
+    expect(formatNote('@07:40 😀 naïve')).toBe('@ 07:40  😀 naïve');
+  });
+
+  it('never changes prose, spellings, case or decimal commas', () => {
+    expect(formatNote('note    free   prose,  kept   ')).toBe('note      free   prose,  kept');
+    expect(formatNote('VITALS HR 118, SpO2 89 PCT')).toBe('VITALS    HR 118, SpO2 89 PCT');
+    expect(formatNote('abg  ph 7,35, pco2 41')).toBe('abg  ph 7,35, pco2 41'); // decimal comma: a syntax issue, the line is left alone
+  });
+
+  it('keeps a comment in its column when there is room, else two spaces after the content', () => {
+    const aligned = `${'vitals hr 118'.padEnd(30)}# settled`;
+    expect(formatNote(aligned)).toBe(`${'vitals    hr 118'.padEnd(30)}# settled`);
+    expect(formatNote('vitals   hr 118 # settled   ')).toBe('vitals    hr 118  # settled');
+    expect(formatNote('@ 07:40 arrival # 😀 first')).toBe('@ 07:40  arrival  # 😀 first');
+  });
+
+  it('leaves blank lines, comment-only lines and broken lines exactly as they are', () => {
+    const untouched = ['', '   ', '\t', '  # just a comment   ', 'vitls hr 100   ', 'vitals hr, rr 18  ', 'abg 7.28/56/71/26/-2', '@ 25:10  handover ', 'vitals hr 88 120'];
+    for (const line of untouched) expect(formatNote(line)).toBe(line);
+  });
+
+  it('keeps each line ending as written (LF, CRLF, CR, mixed) and a byte-order mark', () => {
+    expect(formatNote('vitals hr 80\r\nabg po2 71\r\n')).toBe('vitals    hr 80\r\nabg       po2 71\r\n');
+    expect(formatNote('vitals hr 80\rabg po2 71\nlabs na 140')).toBe('vitals    hr 80\rabg       po2 71\nlabs      na 140');
+    expect(formatNote('\uFEFFvitals hr 80')).toBe('\uFEFFvitals    hr 80');
+  });
+
+  it('leaves the samples as they are (they are in the canonical layout)', () => {
+    for (const file of readdirSync('samples').filter((f) => f.endsWith('.pneu'))) {
+      const text = readFileSync(join('samples', file), 'utf8');
+      expect(formatEdits(text), file).toEqual([]);
+    }
+  });
+});
+
+describe('minimal edits', () => {
+  it('edits only the lines that change, and only the part that changes', () => {
+    const text = note('patient   age 64 y', 'vitals hr 118', '', '# comment');
+    const edits = formatEdits(text);
+    expect(edits).toEqual([{ range: { start: { line: 1, character: 7 }, end: { line: 1, character: 7 } }, newText: '   ' }]);
+    expect(applyEdits(text, edits)).toBe(formatNote(text));
+  });
+
+  it('never splits a surrogate pair', () => {
+    const text = '@07:40 😀x';
+    for (const e of formatEdits(text)) {
+      const line = text;
+      for (const c of [e.range.start.character, e.range.end.character]) {
+        const before = line.charCodeAt(c - 1);
+        expect(before >= 0xd800 && before <= 0xdbff, `edit at ${c}`).toBe(false);
+      }
+    }
+  });
+
+  it('formats only the requested lines', () => {
+    const text = note('vitals hr 1', 'vitals hr 2', 'vitals hr 3');
+    expect(formatEdits(text, { start: 1, end: 1 }).map((e) => e.range.start.line)).toEqual([1]);
+  });
+});
+
+// ── properties ─────────────────────────────────────────────────────────
+
+/** Characters that carry meaning: everything but blanks, whitespace and commas. */
+function inked(line: string): string {
+  let out = '';
+  for (const ch of line) if (!isBlank(ch.charCodeAt(0)) && !/[\s,]/.test(ch)) out += ch;
+  return out;
+}
+
+function words(text: string): string[] {
+  return text.split(/[\s\u00A0\uFEFF]+/).filter((w) => w.length > 0);
+}
+
+/**
+ * What a line says, as a sorted list of tagged tokens: section word, keys, values, units,
+ * prose and label words, time words, and the comment (without trailing blanks). A line with
+ * syntax issues, a blank line and a comment-only line are compared whole, byte for byte.
+ */
+function meaning(node: LineNode): string[] {
+  const comment = node.comment ? [`C:${node.comment.text.replace(/[\s\u00A0\uFEFF]+$/, '')}`] : [];
+  if (node.issues.length > 0 || node.kind === 'blank' || node.kind === 'unknown') return [`RAW:${node.text}`];
+  if (node.kind === 'timepoint') {
+    return [...words(node.time?.text ?? '').map((w) => `T:${w}`), ...words(node.label?.text ?? '').map((w) => `L:${w}`), ...comment].sort();
+  }
+  const out = [`S:${node.sectionToken.text}`, ...comment, ...words(node.prose?.text ?? '').map((w) => `P:${w}`)];
+  const units = new Set<unknown>(); // a shorthand's unit token is shared by its two pressures
+  for (const item of node.items) {
+    if (item.key) out.push(`K:${item.key.text}`);
+    if (item.value) out.push(`V:${item.value.text}`);
+    if (item.unit && !units.has(item.unit)) {
+      units.add(item.unit);
+      out.push(`U:${item.unit.text}`);
+    }
+  }
+  return out.sort();
+}
+
+function endings(text: string): string[] {
+  const { lines } = splitLines(text);
+  return lines.map((l, i) => text.slice(l.offset + l.text.length, lines[i + 1]?.offset ?? text.length));
+}
+
+const notes = fc.oneof({ weight: 4, arbitrary: messyNote }, { weight: 1, arbitrary: anyText });
+
+describe('formatter properties', () => {
+  it(`is idempotent: format(format(x)) = format(x) (${FORMAT_RUNS} generated notes)`, () => {
+    fc.assert(fc.property(notes, (text) => {
+      const once = formatNote(text);
+      expect(formatNote(once)).toBe(once);
+    }), { numRuns: FORMAT_RUNS });
+  });
+
+  it(`never throws, and its edits are minimal, one per changed line and never overlapping (${FORMAT_RUNS} generated notes)`, () => {
+    fc.assert(fc.property(notes, (text) => {
+      const edits = formatEdits(text);
+      expect(editsOverlap(edits)).toBe(false);
+      const lines = edits.map((e) => e.range.start.line);
+      expect(new Set(lines).size).toBe(lines.length);
+      for (const e of edits) expect(e.range.end.line).toBe(e.range.start.line);
+      expect(applyEdits(text, edits)).toBe(formatNote(text));
+      const before = splitLines(text).lines;
+      const after = splitLines(formatNote(text)).lines;
+      before.forEach((l, i) => {
+        if (!lines.includes(i)) expect(after[i]?.text).toBe(l.text);
+        else expect(after[i]?.text).not.toBe(l.text);
+      });
+    }), { numRuns: FORMAT_RUNS });
+  });
+
+  it(`keeps every line's keys, values, units, comments, prose and label words, and its line ending (${FORMAT_RUNS} generated notes)`, () => {
+    fc.assert(fc.property(notes, (text) => {
+      const formatted = formatNote(text);
+      const a = parseNote(text).lines;
+      const b = parseNote(formatted).lines;
+      expect(b.length).toBe(a.length);
+      expect(endings(formatted)).toEqual(endings(text));
+      a.forEach((node, i) => {
+        const other = b[i]!;
+        expect(meaning(other), `line ${i + 1}: ${JSON.stringify(node.text)} → ${JSON.stringify(other.text)}`).toEqual(meaning(node));
+        expect(inked(other.text)).toBe(inked(node.text));
+        if (other.text !== node.text) expect(isBlank(other.text.charCodeAt(other.text.length - 1)), 'trailing blank').toBe(false);
+      });
+    }), { numRuns: FORMAT_RUNS });
+  });
+
+  it(`does not change what the checks find on each line (${FORMAT_RUNS} generated notes)`, () => {
+    const codesByLine = (text: string) => checkNote(text).findings.map((f) => `${f.range.start.line}:${f.code}`).sort();
+    fc.assert(fc.property(messyNote, (text) => {
+      expect(codesByLine(formatNote(text))).toEqual(codesByLine(text));
+    }), { numRuns: FORMAT_RUNS });
+  });
+});
