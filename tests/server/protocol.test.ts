@@ -161,7 +161,7 @@ describe('settings', () => {
     const after = await client.connection.sendRequest<InlayHint[]>('textDocument/inlayHint', { textDocument: { uri }, range: { start: { line: 0, character: 0 }, end: { line: 5, character: 0 } } });
     expect(after.some((h) => String(h.label).includes('ΔP'))).toBe(false);
     const p = client.published.filter((d) => d.uri === uri).at(-1)!;
-    expect(p.diagnostics.some((d) => /hypoxaemia/.test(d.message))).toBe(true);
+    expect(p.diagnostics.some((d) => /hypoxaemia/.test(String(d.message)))).toBe(true);
     client.settings = {};
   });
 

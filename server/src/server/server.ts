@@ -65,6 +65,15 @@ export function startServer(connection: Connection): void {
   const configs = new ProjectConfigs();
   const configDiagnostics = new Set<string>();
   const docs = docsUri();
+  // A finding reused from the previous analysis keeps its translated diagnostic.
+  const translated = new WeakMap<object, Diagnostic>();
+  const diagnosticOf = (f: NoteResult['findings'][number], uri: string): Diagnostic => {
+    const known = translated.get(f);
+    if (known) return known;
+    const d = toDiagnostic(f, uri, docs);
+    translated.set(f, d);
+    return d;
+  };
   let canPullConfiguration = false;
 
   const log = (message: string) => connection.console.log(message);
@@ -166,7 +175,7 @@ export function startServer(connection: Connection): void {
       }];
     } else {
       const result = state.session.update(text);
-      diagnostics = result.findings.map((f) => toDiagnostic(f, uri, docs));
+      diagnostics = result.findings.map((f) => diagnosticOf(f, uri));
     }
     // A newer version may have arrived while analysing: never publish over it.
     if (documents.get(uri)?.version !== version) return;

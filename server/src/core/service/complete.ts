@@ -7,7 +7,7 @@
  *   line starts with its device; a gas line may start with a shorthand);
  * - after a key that takes a word (`mode`, `sex`, `gas`, `device`): its words;
  * - after a key and a number (or a shorthand gas, or a device's flow): the units it takes.
- * Completions are narrowed to those that contain the typed letters in order.
+ * Completions are narrowed to those whose label starts with the typed text.
  */
 import type { NoteResult } from '../check-note';
 import { displayUnit } from '../analysis/read-value';
@@ -208,14 +208,9 @@ function shorthandUnitField(section: SectionId, items: readonly ItemNode[]): Fie
   return pressure ? fieldFor(section, pressure.keyName) : undefined;
 }
 
-/** Keeps completions whose label holds the typed letters in order (case-insensitive). */
+/** Keeps completions whose label starts with the typed text (case-insensitive). */
 function narrow(items: CompletionInfo[], typed: string): CompletionInfo[] {
   if (!typed) return items;
   const t = typed.toLowerCase();
-  return items.filter((c) => {
-    const label = c.label.toLowerCase();
-    let i = 0;
-    for (const ch of label) if (i < t.length && ch === t[i]) i++;
-    return i === t.length;
-  });
+  return items.filter((c) => c.label.toLowerCase().startsWith(t));
 }

@@ -21,11 +21,11 @@ export function termText(t: Term): string {
   return `${t.name} ${formatNumber(t.value, t.decimals)}${unit}${t.note ? ` (${t.note})` : ''}`;
 }
 
+/** Where an input came from; a derived input is named by its label rather than its id. */
 function originText(t: Term): string {
-  const where = describeInputOrigin(t.origin);
-  if (t.origin.kind !== 'derived') return where;
+  if (t.origin.kind !== 'derived') return describeInputOrigin(t.origin);
   const label = derivedDef(t.origin.id)?.label;
-  return label ? `${where}: ${label}` : where;
+  return label ? `computed here: ${label}` : describeInputOrigin(t.origin);
 }
 
 /** The body of a derived value's explanation, without the caution line. */

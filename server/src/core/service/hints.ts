@@ -30,6 +30,8 @@ interface Pick {
   readonly id: string;
   /** The compact text; `n` is the number (with the carried mark when it applies). */
   readonly text: (n: string, d: DerivedValue, all: readonly DerivedValue[]) => string | null;
+  /** The line the hint goes after, when not the derived value's own line. */
+  readonly line?: (d: DerivedValue) => number | null;
 }
 
 /** The values shown, by category, in display order. */
@@ -58,17 +60,21 @@ export const HINT_PICKS: Readonly<Record<HintCategory, readonly Pick[]>> = {
     { id: 'compliance_static', text: (n) => `Cstat ${n}` },
   ],
   atmosphere: [
-    // Only after the place line that gives the altitude (a stated pressure needs no hint).
-    { id: 'barometric', text: (n, d) => {
-      const input = d.inputs[0];
-      return input?.fieldId === 'altitude' && input.origin.kind === 'here' && input.origin.line === d.line ? `PB ${n} mmHg` : null;
-    } },
+    // After the place line that gives the altitude, also in the header (a stated pressure needs no hint).
+    { id: 'barometric', text: (n) => `PB ${n} mmHg`, line: altitudeLine },
   ],
   transport: [
     { id: 'cao2', text: (n) => `CaO2 ${n}` },
     { id: 'do2', text: (n) => `DO2 ${n}` },
   ],
 };
+
+/** The line of the altitude a barometric pressure was estimated from (stated here or in the header). */
+function altitudeLine(d: DerivedValue): number | null {
+  const input = d.inputs[0];
+  if (input?.fieldId !== 'altitude') return null;
+  return input.origin.kind === 'here' || input.origin.kind === 'header' ? input.origin.line : null;
+}
 
 /** Derived ids shown in the tooltip of the acid–base reading, when present on its line. */
 const ACID_BASE_DETAIL = ['paco2_expected', 'hco3_expected_acute', 'hco3_expected_chronic'];
@@ -92,6 +98,8 @@ export function inlayHints(result: NoteResult, lines: LineSpan, options: HintOpt
     cats.set(category, list);
     list.push(entry);
   };
+  /** `line:id` of values already shown (a header altitude's pressure is derived at every timepoint). */
+  const shown = new Set<string>();
   const inRange = (line: number | null): line is number => line !== null && line >= lines.start && line <= lines.end;
 
   for (const derivation of result.analysis.derivations) {
@@ -109,10 +117,14 @@ export function inlayHints(result: NoteResult, lines: LineSpan, options: HintOpt
       }
       for (const pick of HINT_PICKS[category]) {
         for (const d of all) {
-          if (d.id !== pick.id || !inRange(d.line)) continue;
+          if (d.id !== pick.id) continue;
+          const line = pick.line ? pick.line(d) : d.line;
+          if (!inRange(line) || shown.has(`${line}:${d.id}`)) continue;
           const n = `${formatNumber(d.value, d.decimals)}${d.usesCarried ? CARRIED_MARK : ''}`;
           const label = pick.text(n, d, all.filter((v) => v.line === d.line));
-          if (label) add(d.line, category, { label, values: [d], reading: null, derivation });
+          if (!label) continue;
+          shown.add(`${line}:${d.id}`);
+          add(line, category, { label, values: [d], reading: null, derivation });
         }
       }
     }

@@ -16,6 +16,7 @@ import type { ItemNode, LineNode, SectionLine } from '../syntax/tree';
 import type { TextEdit } from '../types';
 import { formatNumber, formatShort } from '../util/format';
 import { ITEM_COLUMN } from './format';
+import { within } from '../analysis/bounds';
 import { allStated, lineRange } from './locate';
 
 export type GasUnit = 'mmHg' | 'kPa';
@@ -149,7 +150,8 @@ function unitsLineInsertion(result: NoteResult): number {
  * say `to`, adding the line when there is none. The note then reads back to the same values,
  * within rounding. Values whose unit could not be read are left as they are; a bare value
  * doubted by PN204 keeps its number and gets the unit it was read in written out, so that
- * nothing changes what it means.
+ * nothing changes what it means. A converted value outside the field's usual range gets its
+ * unit written, so that reading it bare in the new unit raises no doubt about the unit.
  */
 export function convertNoteUnits(result: NoteResult, to: GasUnit): TextEdit[] {
   const edits: TextEdit[] = [];
@@ -196,7 +198,16 @@ export function convertNoteUnits(result: NoteResult, to: GasUnit): TextEdit[] {
   return edits;
 }
 
-function valueEdits(s: StatedValue, field: FieldDef, to: GasUnit, bare: GasUnit | null): TextEdit[] {
+/**
+ * Whether a converted number may stay bare: only when the value is ordinary for its field, so
+ * that reading it in the new gas unit raises no doubt about its unit (PN204).
+ */
+function mayStayBare(s: StatedValue, field: FieldDef): boolean {
+  return s.value !== null && within(s.value, field.soft) && within(s.value, field.hard);
+}
+
+function valueEdits(s: StatedValue, field: FieldDef, to: GasUnit, bareAfter: GasUnit | null): TextEdit[] {
+  const bare = mayStayBare(s, field) || s.readUnit === to ? bareAfter : null;
   const item = s.item;
   const value = item.value!;
   const line = s.line;
@@ -218,9 +229,14 @@ function valueEdits(s: StatedValue, field: FieldDef, to: GasUnit, bare: GasUnit 
   return edits;
 }
 
-function shorthandEdits(sh: ShorthandPressures, to: GasUnit, bare: GasUnit | null): TextEdit[] {
+function shorthandEdits(sh: ShorthandPressures, to: GasUnit, bareAfter: GasUnit | null): TextEdit[] {
   const line = sh.node.line;
   const readUnit = sh.parts[0]?.readUnit ?? null;
+  const ordinary = sh.parts.every((p) => {
+    const f = fieldById(p.fieldId);
+    return f !== undefined && mayStayBare(p, f);
+  });
+  const bare = ordinary || readUnit === to ? bareAfter : null;
   if (!readUnit || sh.parts.some((p) => p.readUnit !== readUnit || p.value === null)) return [];
   if (sh.parts.some((p) => p.unitDoubt)) {
     return sh.unit || bare === readUnit ? [] : [{ range: lineRange(line, sh.end, sh.end), newText: ` ${readUnit}` }];

@@ -1,0 +1,111 @@
+// Benchmarks of the language service on a generated 10,000-line note (about 2,000 timepoints).
+// Prints a table of figures; asserts nothing. Run with `npm run bench` (builds first).
+//   full analysis        checkNote on the whole note, fresh each time (dist/core.js)
+//   incremental update   NoteSession.update after a one-line edit (in process)
+//   edit → diagnostics   a one-line didChange to the publishDiagnostics answering it, over a real
+//                        stdio connection to dist/server.js, with the debounce set to 0
+//   inlay hints          textDocument/inlayHint for a 60-line visible range
+//   server memory        resident set size of the server process after the edits
+import { spawn } from 'node:child_process';
+import { readFileSync } from 'node:fs';
+import { createRequire } from 'node:module';
+import { generateNote } from './generate.mjs';
+
+const require = createRequire(import.meta.url);
+const core = require('../../dist/core.js');
+const { createProtocolConnection, StreamMessageReader, StreamMessageWriter } = require('vscode-languageserver-protocol/node');
+
+
+const TIMEPOINTS = Number(process.env.BENCH_TIMEPOINTS ?? 2000);
+const text = generateNote(TIMEPOINTS);
+const lines = text.split('\n');
+const median = (xs) => { const s = [...xs].sort((a, b) => a - b); return s[Math.floor(s.length / 2)]; };
+const p90 = (xs) => { const s = [...xs].sort((a, b) => a - b); return s[Math.min(s.length - 1, Math.floor(s.length * 0.9))]; };
+const rows = [];
+const row = (what, samples, target, unit = 'ms') => rows.push({ what, median: median(samples), p90: p90(samples), n: samples.length, target, unit });
+
+// Full analysis, in process.
+const full = [];
+for (let i = 0; i < 7; i++) { const t = performance.now(); core.checkNote(text); full.push(performance.now() - t); }
+row('full analysis (checkNote)', full, '≤ 30 ms');
+
+// Incremental update, in process.
+const session = new core.NoteSession();
+session.update(text);
+const edited = [...lines];
+const inc = [];
+/** A vitals line in the middle of the note (the i-th of 40 spread over it). */
+const vitalsLines = lines.map((l, i) => (l.startsWith('vitals') ? i : -1)).filter((i) => i >= 0);
+const editLine = (i) => vitalsLines[Math.floor(vitalsLines.length / 4) + (i % 40) * Math.floor(vitalsLines.length / 80)];
+for (let i = 0; i < 40; i++) {
+  const k = editLine(i);
+  edited[k] = edited[k].replace(/hr (\d+)/, (_m, n) => `hr ${Number(n) + 1}`);
+  const t = performance.now();
+  session.update(edited.join('\n'));
+  inc.push(performance.now() - t);
+}
+row('incremental update (NoteSession)', inc, '—');
+
+// Over stdio to the bundled server.
+const serverFlags = (process.env.BENCH_SERVER_FLAGS ?? '').split(' ').filter(Boolean);
+const child = spawn(process.execPath, [...serverFlags, 'dist/server.js', '--stdio'], { stdio: 'pipe' });
+const connection = createProtocolConnection(new StreamMessageReader(child.stdout), new StreamMessageWriter(child.stdin));
+const waiting = new Map();
+connection.onNotification('textDocument/publishDiagnostics', (p) => {
+  const w = waiting.get(p.version);
+  if (w) { waiting.delete(p.version); w(performance.now()); }
+});
+connection.onNotification('window/logMessage', () => undefined);
+connection.onNotification('pneumark/analysed', () => undefined);
+connection.onRequest('workspace/configuration', (params) => params.items.map(() => ({ debounceMs: 0 })));
+connection.onRequest('client/registerCapability', () => null);
+connection.listen();
+await connection.sendRequest('initialize', { processId: process.pid, rootUri: null, capabilities: { workspace: { configuration: true } } });
+await connection.sendNotification('initialized', {});
+const uri = 'file:///bench/generated.pneu';
+const published = (version) => new Promise((resolve) => waiting.set(version, resolve));
+let t0 = performance.now();
+let done = published(1);
+await connection.sendNotification('textDocument/didOpen', { textDocument: { uri, languageId: 'pneumark', version: 1, text } });
+const openMs = (await done) - t0;
+row('open → first diagnostics (server)', [openMs], '—');
+
+const server = [...lines];
+const editMs = [];
+for (let v = 2; v < 42; v++) {
+  const k = editLine(v);
+  const before = server[k];
+  server[k] = before.replace(/hr (\d+)/, (_m, n) => `hr ${Number(n) + 1}`);
+  done = published(v);
+  t0 = performance.now();
+  await connection.sendNotification('textDocument/didChange', {
+    textDocument: { uri, version: v },
+    contentChanges: [{ range: { start: { line: k, character: 0 }, end: { line: k, character: before.length } }, text: server[k] }],
+  });
+  editMs.push((await done) - t0);
+}
+row('edit → diagnostics over stdio (debounce 0)', editMs, '≤ 15 ms');
+
+const hintMs = [];
+for (let i = 0; i < 30; i++) {
+  const start = 3000 + i * 97;
+  t0 = performance.now();
+  await connection.sendRequest('textDocument/inlayHint', { textDocument: { uri }, range: { start: { line: start, character: 0 }, end: { line: start + 60, character: 0 } } });
+  hintMs.push(performance.now() - t0);
+}
+row('inlay hints, 60 visible lines', hintMs, '≤ 5 ms');
+
+const status = readFileSync(`/proc/${child.pid}/status`, 'utf8');
+const rssKb = Number(/VmRSS:\s+(\d+)/.exec(status)?.[1] ?? NaN);
+row('server resident memory', [rssKb / 1024], '≤ 120 MB', 'MB');
+
+await connection.sendRequest('shutdown');
+await connection.sendNotification('exit');
+connection.dispose();
+
+console.log(`Pneumark language-service benchmark: ${lines.length} lines, ${TIMEPOINTS} timepoints, ${(text.length / 1024).toFixed(0)} KB, Node ${process.version}`);
+console.log(`${'measure'.padEnd(44)} ${'median'.padStart(10)} ${'p90'.padStart(10)} ${'runs'.padStart(5)}   target`);
+for (const r of rows) {
+  const f = (x) => `${x.toFixed(1)} ${r.unit}`.padStart(10);
+  console.log(`${r.what.padEnd(44)} ${f(r.median)} ${f(r.p90)} ${String(r.n).padStart(5)}   ${r.target}`);
+}

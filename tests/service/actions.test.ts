@@ -1,0 +1,249 @@
+// Code actions: finding fixes, unit conversions of the value under the cursor, writing out an
+// implied unit, fix-all, and converting every gas pressure of a note; applying any action keeps
+// every value and comment.
+import { readFileSync, readdirSync } from 'node:fs';
+import { join } from 'node:path';
+import fc from 'fast-check';
+import { describe, expect, it } from 'vitest';
+import { checkNote, type NoteResult } from '../../server/src/core/check-note';
+import type { StatedValue } from '../../server/src/core/analysis/model';
+import { fieldById } from '../../server/src/core/fields/registry';
+import { applyEdits, codeActions, convertNoteUnits, editsOverlap, type ActionInfo } from '../../server/src/core/service';
+import { note, noteAt } from './cursor';
+import { messyNote } from './note-arbitraries';
+
+export const ACTION_RUNS = 300;
+
+function actions(marked: string): { text: string; list: ActionInfo[] } {
+  const { text, result, range } = noteAt(marked);
+  return { text, list: codeActions(result, range) };
+}
+
+/** The text after applying the action whose title starts with `title`. */
+function after(marked: string, title: string): string {
+  const { text, list } = actions(marked);
+  const action = list.find((a) => a.title.startsWith(title));
+  expect(action, `${title} in ${list.map((a) => a.title).join(' | ')}`).toBeDefined();
+  return applyEdits(text, action!.edits);
+}
+
+function stated(result: NoteResult): StatedValue[] {
+  return [...result.analysis.timeline.header, ...result.analysis.timeline.timepoints.flatMap((t) => t.stated)];
+}
+
+describe('fixes of findings', () => {
+  it('offers every fix of a finding the range touches, tagged with its code, preferred when safe', () => {
+    const { list } = actions('abg ph 7,|35, pco2 41');
+    const fix = list.find((a) => a.title === 'Write `7.35`');
+    expect(fix).toMatchObject({ kind: 'quickfix', findingCodes: ['PN103'], preferred: true });
+    const unknown = actions('vitals rr|r 18').list.filter((a) => a.findingCodes?.includes('PN201'));
+    expect(unknown.map((a) => a.title)).toContain('Change to `rr`');
+  });
+
+  it('offers nothing from findings the range does not touch', () => {
+    const { list } = actions(note('abg ph 7,35', 'vitals h|r 80'));
+    expect(list.filter((a) => a.kind === 'quickfix' && a.findingCodes?.includes('PN103'))).toEqual([]);
+  });
+});
+
+describe('the value under the cursor in the other unit', () => {
+  it('gas pressures: mmHg ↔ kPa, writing or replacing the unit', () => {
+    expect(after('abg po2 7|1', 'Write po2 in kPa')).toBe('abg po2 9.5 kPa');
+    expect(after('abg po2 9.5 k|Pa', 'Write po2 in mmHg')).toBe('abg po2 71 mmHg');
+    expect(after(note('units gas kPa', 'abg pco2 7|.5'), 'Write pco2 in mmHg')).toBe(note('units gas kPa', 'abg pco2 56 mmHg'));
+  });
+
+  it('FiO2: fraction ↔ percentage', () => {
+    expect(after('vent fio2 0.|4', 'Write fio2 in %')).toBe('vent fio2 40 %');
+    expect(after('vent fio2 40 |%', 'Write fio2 in a fraction')).toBe('vent fio2 0.40');
+    expect(after('vent fio2 2|8', 'Write fio2 in a fraction')).toBe('vent fio2 0.28');
+  });
+
+  it('temperature °C ↔ °F, also with a glued unit; Hb g/dL ↔ g/L', () => {
+    expect(after('vitals temp 38.|4', 'Write temp in F')).toBe('vitals temp 101.1 F');
+    expect(after('vitals temp 101.1 |F', 'Write temp in C')).toBe('vitals temp 38.4 C');
+    expect(after('vitals temp 38.4|C', 'Write temp in F')).toBe('vitals temp 101.1F');
+    expect(after('labs hb 11.|8', 'Write hb in g/L')).toBe('labs hb 118 g/L');
+  });
+
+  it('a shorthand gas converts both pressures and its unit together', () => {
+    expect(after('abg 7.28/56/7|1/26', 'Write the shorthand gas pressures in kPa')).toBe('abg 7.28/7.5/9.5/26 kPa');
+    expect(after('abg 7.28/7.5/9|.5/26 kPa, be -2', 'Write the shorthand gas pressures in mmHg')).toBe('abg 7.28/56/71/26 mmHg, be -2');
+  });
+
+  it('offers no conversion for a doubtful or impossible value', () => {
+    expect(actions('abg po2 9.|1').list.filter((a) => a.title.startsWith('Write po2 in'))).toEqual([]);
+    expect(actions('vent fio2 1|4').list.filter((a) => a.title.startsWith('Write fio2 in'))).toEqual([]);
+  });
+});
+
+describe('writing out the unit a bare value was read in', () => {
+  it('adds the unit after the number', () => {
+    expect(after('abg po2 7|1', 'Write the unit it was read in')).toBe('abg po2 71 mmHg');
+    expect(after(note('units gas kPa', 'abg po2 9.|5'), 'Write the unit it was read in')).toBe(note('units gas kPa', 'abg po2 9.5 kPa'));
+    expect(after('vitals hr 8|0', 'Write the unit it was read in')).toBe('vitals hr 80 /min');
+    expect(after('abg 7.28/5|6/71/26', 'Write the unit the shorthand pressures were read in')).toBe('abg 7.28/56/71/26 mmHg');
+  });
+
+  it('not for a written unit, a fraction, a pH, or a doubtful value (its finding offers "Mark as kPa")', () => {
+    expect(actions('abg po2 71 mm|Hg').list.some((a) => a.title.startsWith('Write the unit'))).toBe(false);
+    expect(actions('vent fio2 0.|4').list.some((a) => a.title.startsWith('Write the unit'))).toBe(false);
+    expect(actions('abg ph 7.|3').list.some((a) => a.title.startsWith('Write the unit'))).toBe(false);
+    const doubtful = actions('abg po2 9.|1').list;
+    expect(doubtful.some((a) => a.title.startsWith('Write the unit'))).toBe(false);
+    expect(doubtful.some((a) => a.title === 'Mark as kPa' && a.findingCodes?.includes('PN204'))).toBe(true);
+  });
+});
+
+describe('fix all of a kind', () => {
+  const text = note('@ 08:00', 'abg ph 7,35, pco2 4,1', 'labs na 13,9', '@ 09:00', 'vitals rrr 18');
+
+  it('fixes every decimal comma in the note in one action, edits never overlapping', () => {
+    const { list } = actions(note('@ 08:00', 'abg ph 7,|35, pco2 4,1', 'labs na 13,9', '@ 09:00', 'vitals rrr 18'));
+    const all = list.find((a) => a.title.startsWith('Fix all in the note: Decimal comma'));
+    expect(all).toMatchObject({ kind: 'quickfix', findingCodes: ['PN103'] });
+    expect(all?.title).toContain('3 places');
+    expect(editsOverlap(all!.edits)).toBe(false);
+    expect(applyEdits(text, all!.edits)).toBe(note('@ 08:00', 'abg ph 7.35, pco2 4.1', 'labs na 13.9', '@ 09:00', 'vitals rrr 18'));
+  });
+
+  it('offers one source action applying every safe fix (a single did-you-mean too)', () => {
+    const result = checkNote(text);
+    const fixAll = codeActions(result, { start: { line: 0, character: 0 }, end: { line: 0, character: 0 } }).find((a) => a.kind === 'source.fixAll');
+    expect(fixAll?.findingCodes?.sort()).toEqual(['PN103', 'PN201']);
+    expect(applyEdits(text, fixAll!.edits)).toBe(note('@ 08:00', 'abg ph 7.35, pco2 4.1', 'labs na 13.9', '@ 09:00', 'vitals rr 18'));
+  });
+});
+
+describe('convertNoteUnits', () => {
+  it('writes every gas pressure in kPa, including shorthand, header and bare values, and adds the units line', () => {
+    const text = note(
+      'patient   age 60 y',
+      'place     barometric 628',
+      '@ 08:00',
+      'vitals    etco2 38',
+      'abg       7.28/56/71/26, be -2   # first',
+      'vbg       pco2 61 mmHg, po2 5.2 kPa',
+    );
+    const converted = applyEdits(text, convertNoteUnits(checkNote(text), 'kPa'));
+    expect(converted).toBe(note(
+      'patient   age 60 y',
+      'units     gas kPa',
+      'place     barometric 83.7',
+      '@ 08:00',
+      'vitals    etco2 5.1',
+      'abg       7.28/7.5/9.5/26, be -2   # first',
+      'vbg       pco2 8.1 kPa, po2 5.2 kPa',
+    ));
+  });
+
+  it('updates an existing `units gas` line, and converts back', () => {
+    const text = readFileSync('samples/home-oxygen-exacerbation.pneu', 'utf8');
+    const toMmhg = applyEdits(text, convertNoteUnits(checkNote(text), 'mmHg'));
+    expect(toMmhg).toContain('units     gas mmHg');
+    expect(toMmhg).toContain('abg       7.26/72/81/31');
+    const back = applyEdits(toMmhg, convertNoteUnits(checkNote(toMmhg), 'kPa'));
+    expect(back).toContain('abg       7.26/9.6/10.8/31');
+  });
+
+  it('keeps a doubtful bare value as read, with its unit written', () => {
+    const text = note('@ 08:00', 'abg po2 9.1');
+    expect(applyEdits(text, convertNoteUnits(checkNote(text), 'kPa'))).toBe(note('units     gas kPa', '@ 08:00', 'abg po2 9.1 mmHg'));
+  });
+
+  it('uses the note\'s line ending for the added line', () => {
+    const text = '@ 08:00\r\nabg po2 71\r\n';
+    expect(applyEdits(text, convertNoteUnits(checkNote(text), 'kPa'))).toBe('units     gas kPa\r\n@ 08:00\r\nabg po2 9.5\r\n');
+  });
+
+  it('is offered on a gas pressure and on the units line, for the direction that changes something', () => {
+    const titles = actions(note('@ 08:00', 'abg po2 7|1')).list.map((a) => a.title);
+    expect(titles).toContain('Convert every gas pressure in the note to kPa');
+    expect(titles).not.toContain('Convert every gas pressure in the note to mmHg');
+    expect(actions(note('units g|as kPa', 'abg po2 9.5')).list.map((a) => a.title)).toContain('Convert every gas pressure in the note to mmHg');
+  });
+});
+
+// ── properties ─────────────────────────────────────────────────────────
+
+/** Canonical tolerance of a value written back with the usual decimals of each unit. */
+function tolerance(s: StatedValue): number {
+  switch (s.unit) {
+    case 'mmHg': return 0.5 + 1e-6; // kPa to 1 decimal is ±0.375 mmHg; mmHg to 0 decimals ±0.5
+    case 'fraction': return 0.005 + 1e-9;
+    case 'C': return 0.05 + 1e-6;
+    case 'g/dL': return 0.05 + 1e-6;
+    default: return 1e-9;
+  }
+}
+
+function comments(text: string): string[] {
+  return checkNote(text).analysis.tree.lines.flatMap((l) => (l.comment ? [l.comment.text] : [])).sort();
+}
+
+function valuesPerLine(result: NoteResult): number[] {
+  return result.analysis.tree.lines.map((l) => (l.kind === 'section' ? l.items.filter((i) => i.value !== null).length : 0));
+}
+
+const sampleNotes = readdirSync('samples').filter((f) => f.endsWith('.pneu')).map((f) => readFileSync(join('samples', f), 'utf8'));
+const notes = fc.oneof({ weight: 3, arbitrary: messyNote }, { weight: 1, arbitrary: fc.constantFrom(...sampleNotes) });
+
+describe('action properties', () => {
+  it(`applying any action never throws, never loses a value or a comment, and a conversion keeps the value (${ACTION_RUNS} generated notes)`, () => {
+    fc.assert(fc.property(notes, fc.nat(), (text, seed) => {
+      const result = checkNote(text);
+      const positions = result.analysis.tree.lines.flatMap((l) => (l.kind === 'section' ? l.items.map((i) => ({ line: l.line, character: (i.value ?? i.key ?? i).span.start })) : []));
+      const picked = positions.filter((_, i) => (i + seed) % Math.max(1, Math.ceil(positions.length / 6)) === 0);
+      const ranges = [...picked.map((p) => ({ start: p, end: p })), { start: { line: 0, character: 0 }, end: { line: result.analysis.tree.lines.length, character: 0 } }];
+      const before = stated(result);
+      const beforeValues = valuesPerLine(result);
+      for (const range of ranges) {
+        for (const action of codeActions(result, range)) {
+          expect(editsOverlap(action.edits), action.title).toBe(false);
+          const changed = applyEdits(text, action.edits);
+          const again = checkNote(changed);
+          expect(comments(changed), action.title).toEqual(comments(text));
+          const shift = again.analysis.tree.lines.length - result.analysis.tree.lines.length;
+          expect(shift === 0 || (shift === 1 && action.title.startsWith('Convert every')), action.title).toBe(true);
+          const afterValues = valuesPerLine(again).slice(shift);
+          beforeValues.forEach((n, i) => expect(afterValues[i] ?? 0, `${action.title}, line ${i + 1}`).toBeGreaterThanOrEqual(n));
+          if (action.kind === 'refactor.rewrite') {
+            const afterStated = stated(again);
+            for (const s of before) {
+              if (s.value === null || !s.readUnit) continue;
+              const same = afterStated.find((o) => o.line === s.line + shift && o.item.keyName === s.item.keyName && o.fieldId === s.fieldId && o.item.span.start >= s.item.span.start - 0 && Math.abs(o.item.span.start - s.item.span.start) < 64);
+              expect(same?.value ?? null, `${action.title}: ${s.fieldId} on line ${s.line + 1}`).not.toBeNull();
+              expect(Math.abs(same!.value! - s.value), `${action.title}: ${s.fieldId} ${s.value} → ${same!.value}`).toBeLessThanOrEqual(tolerance(s));
+            }
+          }
+        }
+      }
+    }), { numRuns: ACTION_RUNS });
+  });
+
+  it(`convertNoteUnits reads back to the same values within rounding, both ways (${ACTION_RUNS} generated notes)`, () => {
+    fc.assert(fc.property(notes, fc.constantFrom('mmHg' as const, 'kPa' as const), (text, to) => {
+      const result = checkNote(text);
+      const edits = convertNoteUnits(result, to);
+      expect(editsOverlap(edits)).toBe(false);
+      const converted = applyEdits(text, edits);
+      const again = checkNote(converted);
+      expect(comments(converted)).toEqual(comments(text));
+      const gas = (r: NoteResult) => stated(r).filter((s) => fieldById(s.fieldId)?.dimension === 'gas-pressure');
+      const a = gas(result);
+      const b = gas(again);
+      expect(b.map((s) => s.fieldId)).toEqual(a.map((s) => s.fieldId));
+      a.forEach((s, i) => {
+        const o = b[i]!;
+        if (s.value === null || !s.readUnit) return;
+        expect(o.value, `${s.fieldId} line ${s.line + 1}`).not.toBeNull();
+        expect(Math.abs(o.value! - s.value), `${s.fieldId} ${s.value} → ${o.value} (${JSON.stringify(converted.split(/\r\n|\r|\n/)[o.line])})`).toBeLessThanOrEqual(tolerance(s));
+        const field = fieldById(s.fieldId)!;
+        if (field.units?.includes(to) && !s.unitDoubt) expect(o.readUnit, `${s.fieldId} line ${o.line + 1}`).toBe(to);
+        if (s.unitDoubt === null) expect(o.unitDoubt).toBeNull();
+      });
+      // Converting again changes nothing.
+      expect(applyEdits(converted, convertNoteUnits(again, to))).toBe(converted);
+    }), { numRuns: ACTION_RUNS });
+  });
+});

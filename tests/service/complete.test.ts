@@ -1,0 +1,139 @@
+// Completions by cursor position: sections and snippets at the start of a line, keys after a
+// section word or a comma, words after word keys, units after a number.
+import { describe, expect, it } from 'vitest';
+import { checkNote } from '../../server/src/core/check-note';
+import { SECTIONS } from '../../server/src/core/fields/sections';
+import { completionsAt, type CompletionInfo } from '../../server/src/core/service';
+import { noteAt } from './cursor';
+
+function complete(marked: string): CompletionInfo[] {
+  const { result, position } = noteAt(marked);
+  return completionsAt(result, position);
+}
+
+const labels = (marked: string) => complete(marked).map((c) => c.label);
+
+describe('at the start of a line', () => {
+  it('offers every section with its description, padded so items start in column 10', () => {
+    const items = complete('|');
+    const sections = items.filter((c) => c.kind === 'section');
+    expect(sections.map((c) => c.label)).toEqual(SECTIONS.map((s) => s.id));
+    const vitals = sections.find((c) => c.label === 'vitals');
+    expect(vitals?.documentation).toBe('Bedside observations at this timepoint.');
+    expect(vitals?.insertText).toBe('vitals    ');
+  });
+
+  it('offers timepoint, gas-line and vent-line snippets', () => {
+    const snippets = complete('|').filter((c) => c.kind === 'snippet');
+    expect(snippets.every((c) => c.isSnippet)).toBe(true);
+    const texts = snippets.map((c) => c.insertText);
+    expect(texts).toContain('@ day ${1:1} ${2:08:00}  ${3:label}');
+    expect(texts).toContain('@ +${1:1h}');
+    expect(texts.some((t) => t.startsWith('abg       ${1:7.40}/${2:40}/${3:90}/${4:24}'))).toBe(true);
+    expect(texts.some((t) => t.startsWith('vent      mode ${1:VC}'))).toBe(true);
+  });
+
+  it('narrows to a partly typed first word and replaces it', () => {
+    const items = complete('vi|');
+    expect(items.map((c) => c.label)).toEqual(['vitals']);
+    expect(items[0]?.replace).toEqual({ start: { line: 0, character: 0 }, end: { line: 0, character: 2 } });
+    expect(labels('@|').every((l) => l.startsWith('@'))).toBe(true);
+    expect(labels('@|').length).toBe(3);
+  });
+
+  it('inserts the bare section word when the line already has items', () => {
+    expect(complete('vit| hr 80').find((c) => c.label === 'vitals')?.insertText).toBe('vitals');
+  });
+
+  it('offers times after `@`', () => {
+    expect(labels('@ |')).toEqual(['day 1 08:00', '08:00', '+1h']);
+    expect(labels('@ 08:00 |')).toEqual([]);
+  });
+});
+
+describe('keys', () => {
+  it('after a section word: the keys of that section with their label and default unit', () => {
+    const items = complete('vitals    |');
+    expect(items.map((c) => c.label)).toEqual(['hr', 'rr', 'spo2', 'temp', 'bp', 'etco2', 'co']);
+    expect(items[0]).toMatchObject({ kind: 'key', detail: 'Heart rate · /min', documentation: 'Heart rate.', insertText: 'hr' });
+    expect(complete('abg |').find((c) => c.label === 'po2')?.detail).toBe("PaO2 · mmHg or kPa (bare: the note's gas unit)");
+  });
+
+  it('after a comma: the keys not yet used on the line', () => {
+    expect(labels('vitals hr 80, |')).toEqual(['rr', 'spo2', 'temp', 'bp', 'etco2', 'co']);
+    expect(labels('vitals hr 80, | , spo2 95 %')).toEqual(['rr', 'temp', 'bp', 'etco2', 'co']);
+    expect(labels('vitals hr 80, r|')).toEqual(['rr']);
+    expect(labels('vitals hr|')).toContain('hr'); // the key being typed does not count as used
+  });
+
+  it('after a complete item without a comma (commas are optional)', () => {
+    expect(labels('vitals hr 80 bpm |')).toContain('rr');
+    expect(labels('abg 7.28/56/71/26 kPa |')).toContain('be');
+  });
+
+  it('offers a shorthand snippet first on a gas line', () => {
+    const shorthand = complete('abg |').find((c) => c.kind === 'snippet');
+    expect(shorthand?.insertText).toBe('${1:7.40}/${2:40}/${3:90}/${4:24}');
+  });
+});
+
+describe('words', () => {
+  it('modes after `mode`, sexes after `sex`, gas units after `units gas`, devices first on an oxygen line', () => {
+    expect(labels('vent mode |')).toEqual(['VC', 'PC', 'PRVC', 'PS', 'SIMV', 'APRV', 'CPAP', 'HFOV']);
+    expect(labels('patient age 60 y, sex |')).toEqual(['female', 'male']);
+    expect(labels('units gas |')).toEqual(['mmHg', 'kPa']);
+    expect(labels('oxygen |')).toEqual(['room air', 'cannula', 'mask', 'venturi', 'reservoir', 'hfnc', 'niv', 'cpap']);
+    expect(labels('oxygen ca|')).toEqual(['cannula']);
+  });
+});
+
+describe('units', () => {
+  it('after a key and a number: the units that key takes', () => {
+    expect(labels('abg po2 71 |')).toEqual(['mmHg', 'kPa']);
+    expect(labels('vitals temp 38.2 |')).toEqual(['C', 'F']);
+    expect(labels('vent fio2 40 |')).toEqual(['%']);
+    expect(labels('labs hb 11 |')).toEqual(['g/dL', 'g/L']);
+    expect(complete('abg po2 71 |')[0]).toMatchObject({ kind: 'unit', detail: 'PaO2 (default unit)' });
+  });
+
+  it('after a shorthand gas or a device flow', () => {
+    expect(labels('abg 7.28/56/71/26 |')).toEqual(['mmHg', 'kPa']);
+    expect(labels('oxygen cannula 2 |')).toEqual(['L/min']);
+    expect(labels('oxygen cpap 8 |')).toEqual(['cmH2O', 'mbar']);
+  });
+
+  it('a unit being typed glued to its number replaces only the unit', () => {
+    const items = complete('abg po2 71k|');
+    expect(items.map((c) => c.label)).toEqual(['kPa']);
+    expect(items[0]?.replace).toEqual({ start: { line: 0, character: 10 }, end: { line: 0, character: 11 } });
+  });
+
+  it('falls back to keys when the typed word is not a unit', () => {
+    expect(labels('vitals hr 80 rr|')).toEqual(['rr']);
+  });
+});
+
+describe('where there is nothing to offer', () => {
+  it('in comments, prose, broken lines, numbers being typed, and past the end', () => {
+    expect(complete('vitals hr 80 # |')).toEqual([]);
+    expect(complete('note some |')).toEqual([]);
+    expect(complete('vitls |')).toEqual([]);
+    expect(complete('vitals hr 8|')).toEqual([]);
+    const result = checkNote('vitals hr 80');
+    expect(completionsAt(result, { line: 0, character: 99 })).toEqual([]);
+    expect(completionsAt(result, { line: 7, character: 0 })).toEqual([]);
+    expect(completionsAt(result, { line: -1, character: 0 })).toEqual([]);
+  });
+});
+
+describe('columns and line endings', () => {
+  it('counts UTF-16 columns after emoji and non-ASCII text', () => {
+    const items = complete('vitals hr 80 😀, r|');
+    expect(items[0]?.replace).toEqual({ start: { line: 0, character: 17 }, end: { line: 0, character: 18 } });
+    expect(complete('vitals temp 37 °C, s|')[0]?.replace?.start.character).toBe(19);
+  });
+
+  it('works on CRLF notes', () => {
+    expect(labels('vitals hr 80\r\nabg po2 71 |\r\n')).toEqual(['mmHg', 'kPa']);
+  });
+});

@@ -1,0 +1,177 @@
+// Hovers on section words, keys, values, units and timepoint lines, and the derived-value
+// explanation shared with inlay hints.
+import { describe, expect, it } from 'vitest';
+import { checkNote } from '../../server/src/core/check-note';
+import { CAUTION, derivedHover, hoverAt } from '../../server/src/core/service';
+import { note, noteAt } from './cursor';
+
+function hover(marked: string) {
+  const { result, position } = noteAt(marked);
+  return hoverAt(result, position);
+}
+
+function markdown(marked: string): string {
+  const h = hover(marked);
+  expect(h, marked).not.toBeNull();
+  return h!.markdown;
+}
+
+const endsWithCaution = (md: string) => expect(md.trimEnd().endsWith(`_${CAUTION}_`)).toBe(true);
+
+describe('hover on a section word', () => {
+  it('says what the section holds, whether it carries, and its keys', () => {
+    const h = hover('ab|g       po2 71');
+    expect(h?.range).toEqual({ start: { line: 0, character: 0 }, end: { line: 0, character: 3 } });
+    expect(h?.markdown).toContain('Arterial blood gas');
+    expect(h?.markdown).toContain('do not carry forward');
+    expect(h?.markdown).toContain('`po2` PaO2');
+    expect(markdown('o2| cannula 2')).toContain('carry forward to later timepoints until restated');
+  });
+});
+
+describe('hover on a key, value or unit', () => {
+  it('names the field, the value in both unit systems, the implied unit, where it came from and LOINC', () => {
+    const md = markdown(note('@ day 1 08:00  arrival', 'abg       p|o2 71'));
+    expect(md).toContain('**PaO2**');
+    expect(md).toContain('Arterial partial pressure of oxygen.');
+    expect(md).toContain('**71 mmHg** = 9.5 kPa');
+    expect(md).toContain('No unit written: read in mmHg — the default gas unit');
+    expect(md).toContain('Stated on line 2, at timepoint ‘arrival’ (day 1, 08:00)');
+    expect(md).toContain('LOINC 2703-7');
+    expect(md).toContain('Carries forward: no');
+    endsWithCaution(md);
+  });
+
+  it('gives the same hover on the value and on the unit, with the unit as written', () => {
+    const onValue = hover('abg po2 9|.5 kPa');
+    const onUnit = hover('abg po2 9.5 kP|a');
+    expect(onValue?.range).toEqual({ start: { line: 0, character: 8 }, end: { line: 0, character: 11 } });
+    expect(onUnit?.range).toEqual({ start: { line: 0, character: 12 }, end: { line: 0, character: 15 } });
+    expect(onUnit?.markdown).toContain('**71 mmHg** = 9.5 kPa');
+    expect(onUnit?.markdown).toContain('Written in kPa.');
+  });
+
+  it("names the note's `units gas` line for a bare gas pressure", () => {
+    const md = markdown(note('units gas kPa', '@ 08:00', 'abg 7.28/7.5/9|.5/26'));
+    expect(md).toContain('the third number of the shorthand gas');
+    expect(md).toContain('read in kPa — the note\'s gas unit (`units gas`, line 1)');
+    expect(md).toContain('**71 mmHg** = 9.5 kPa');
+  });
+
+  it('shows FiO2 as a fraction and a percentage, temperature in °C and °F, Hb in g/dL and g/L', () => {
+    const fio2 = markdown('vent fio2 0.4|');
+    expect(fio2).toContain('**0.40** (a fraction) = 40 %');
+    expect(fio2).toContain('a bare number up to 1 is a fraction, above 1 a percentage');
+    expect(markdown('vent fio2 4|0 %')).toContain('Written in %.');
+    expect(markdown('vitals temp 38|.4')).toContain('**38.4 C** = 101.1 F');
+    expect(markdown('labs hb 11|.8')).toContain('**11.8 g/dL** = 118 g/L');
+  });
+
+  it('says whether a value carries forward', () => {
+    expect(markdown('vent pe|ep 8')).toContain('Carries forward: yes');
+    expect(markdown('vent plat|eau 27')).toContain('a reading belongs to its timepoint');
+    expect(markdown('place alti|tude 1650 m')).toContain('until a later `place` line replaces the place');
+  });
+
+  it('says a header value comes from the header, and what a value feeds', () => {
+    expect(markdown(note('patient ag|e 64 y', '@ 08:00'))).toContain('From the header, line 1.');
+    const md = markdown(note('@ 08:00', 'oxygen room air', 'abg po|2 71, pco2 40'));
+    expect(md).toContain('Used here for:');
+    expect(md).toContain('P/F 338 mmHg');
+  });
+
+  it('says when a value is kept out of calculations, or replaced by a later one', () => {
+    expect(markdown('abg po2 9.|1')).toContain('Not used in calculations: implausible in mmHg, ordinary in kPa');
+    expect(markdown(note('@ 08:00', 'abg po2 7|1', 'abg po2 64'))).toContain('A later value at this timepoint replaces it (line 3)');
+  });
+
+  it('explains a key that is not a key of its section', () => {
+    const md = markdown('vitals rr|r 18');
+    expect(md).toContain('`rrr` is not a key of `vitals` lines');
+    expect(md).toContain('`rr`');
+  });
+});
+
+describe('hover on a timepoint line', () => {
+  const text = note(
+    'patient   age 58 y, sex female, height 165 cm',
+    '@ day 1 22:15  admitted',
+    'vent      mode VC, vt 420 mL, rate 20, peep 8, fio2 0.8',
+    'abg       ph 7.29, pco2 49, po2 74, hco3 23',
+    '',
+    '@ +3h45  |PEEP raised',
+    'vent      peep 12, plateau 27',
+    'abg       7.31/47/88/23.2',
+  );
+
+  it('gives the time, the values carried in and where from, derived values and readings', () => {
+    const h = hover(text)!;
+    expect(h.range).toEqual({ start: { line: 5, character: 0 }, end: { line: 5, character: 20 } });
+    const md = h.markdown;
+    expect(md).toContain('Time: day 2, 02:00 (225 min after the previous timepoint; 1560 min after day 1 00:00)');
+    expect(md).toContain('**Carried into this timepoint**');
+    expect(md).toContain('Age 58 y (header, line 1)');
+    expect(md).toContain('FiO2 0.80 (carried from admitted, line 3)');
+    expect(md).toContain('**Derived here**');
+    expect(md).toContain('P/F ratio (P/F): **110 mmHg** — _uses a carried value_');
+    expect(md).toContain('Driving pressure (ΔP): **15 cmH2O**');
+    expect(md).toMatch(/- [^\n]*consistent with/i);
+    endsWithCaution(md);
+  });
+
+  it('counts UTF-16 columns after emoji and non-ASCII prose', () => {
+    const h = hover('@ 07:40  café 😀 revi|ew   # note');
+    expect(h?.range.end.character).toBe('@ 07:40  café 😀 review'.length);
+    expect(hover('vitals hr 80 😀, r|r 20')?.range).toEqual({ start: { line: 0, character: 17 }, end: { line: 0, character: 19 } });
+    expect(hover('vitals hr 80 😀, r|r 20')?.markdown).toContain('Respiratory rate');
+  });
+
+  it('works on CRLF notes', () => {
+    const h = hover('@ 08:00\r\nvitals hr 80\r\nabg p|o2 71\r\n');
+    expect(h?.range).toEqual({ start: { line: 2, character: 4 }, end: { line: 2, character: 7 } });
+  });
+});
+
+describe('hover where there is nothing to say', () => {
+  it('returns null in comments, blanks, broken lines, prose, and past the end', () => {
+    expect(hover('vitals hr 80  # a com|ment')).toBeNull();
+    expect(hover('|')).toBeNull();
+    expect(hover('vit|ls hr 100')).toBeNull();
+    expect(hover('note free pr|ose')).toBeNull();
+    const result = checkNote('vitals hr 80\nabg po2 71');
+    expect(hoverAt(result, { line: 0, character: 200 })).toBeNull();
+    expect(hoverAt(result, { line: 9, character: 0 })).toBeNull();
+    expect(hoverAt(result, { line: -1, character: 0 })).toBeNull();
+    expect(hoverAt(result, { line: 0, character: -3 })).toBeNull();
+    expect(hoverAt(result, { line: 0.5, character: 1 })).toBeNull();
+  });
+});
+
+describe('derivedHover', () => {
+  const result = checkNote(note('patient age 40 y', '@ 08:00', 'oxygen cannula 2', 'vent peep 5', '@ 09:00', 'oxygen room air', 'abg ph 7.31, pco2 41, po2 71, hco3 20'));
+  const derived = result.analysis.derivations.flatMap((d) => d.derived);
+  const byId = (id: string) => derived.find((d) => d.id === id)!;
+
+  it('explains a value: label, value, formula in words and with numbers, inputs and origins, source, caution', () => {
+    const md = derivedHover(byId('pf_ratio'));
+    expect(md).toContain('**P/F ratio** (P/F): **338 mmHg**');
+    expect(md).toContain('Formula: `PaO2 ÷ FiO2`');
+    expect(md).toContain('With the numbers: `71 ÷ 0.21 = 338 mmHg`');
+    expect(md).toContain('- PaO2 71 mmHg — line 7');
+    expect(md).toContain('- FiO2 0.21 (room air) — line 6');
+    expect(md).toContain('Source: ');
+    endsWithCaution(md);
+  });
+
+  it('marks an estimate, shows ranges, and names derived inputs', () => {
+    const est = derivedHover(checkNote('@ 08:00\noxygen cannula 3').analysis.derivations[0]!.derived.find((d) => d.id === 'fio2_estimated')!);
+    expect(est).toContain('_estimate_');
+    const aa = derivedHover(byId('aa_gradient'));
+    expect(aa).toContain('- PAO2 98 mmHg — computed here: Alveolar PO2');
+    expect(derivedHover(byId('paco2_expected'))).toContain('(PaCO2 expected): **36–40 mmHg**');
+  });
+
+  it('never prints NaN, Infinity or undefined', () => {
+    for (const d of derived) expect(derivedHover(d)).not.toMatch(/NaN|Infinity|undefined/);
+  });
+});
