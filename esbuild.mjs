@@ -1,7 +1,7 @@
 // One bundler, one entry per artefact. `node esbuild.mjs [--production]`.
 // The metafile of each bundle is written to dist/meta/ (inspected by the network-free test).
 import { build } from 'esbuild';
-import { existsSync, mkdirSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 
 const production = process.argv.includes('--production');
 
@@ -10,6 +10,7 @@ const artefacts = [
   { name: 'core', entry: 'server/src/core/index.ts' },
   { name: 'server', entry: 'server/src/server/main.ts' },
   { name: 'extension', entry: 'client/src/extension.ts', external: ['vscode'] },
+  { name: 'webview/trends', entry: 'client/webview/trends.ts', platform: 'browser', format: 'iife' },
 ].filter((a) => existsSync(a.entry));
 
 mkdirSync('dist/meta', { recursive: true });
@@ -19,9 +20,9 @@ await Promise.all(
       entryPoints: [a.entry],
       outfile: `dist/${a.name}.js`,
       bundle: true,
-      platform: 'node',
-      target: 'node20',
-      format: 'cjs',
+      platform: a.platform ?? 'node',
+      target: a.platform === 'browser' ? 'chrome120' : 'node20',
+      format: a.format ?? 'cjs',
       sourcemap: !production,
       minify: production,
       external: a.external ?? [],
@@ -29,6 +30,10 @@ await Promise.all(
       logLevel: 'warning',
       ...(a.banner ? { banner: { js: a.banner } } : {}),
     });
-    writeFileSync(`dist/meta/${a.name}.json`, JSON.stringify(result.metafile));
+    writeFileSync(`dist/meta/${a.name.replace('/', '-')}.json`, JSON.stringify(result.metafile));
   }),
 );
+
+// The trend view's stylesheet: the charting library's own CSS, then ours.
+mkdirSync('dist/webview', { recursive: true });
+writeFileSync('dist/webview/trends.css', `${readFileSync('node_modules/uplot/dist/uPlot.min.css', 'utf8')}\n${readFileSync('client/webview/trends.css', 'utf8')}`);

@@ -15,7 +15,9 @@ import { checkByCodeOrAlias } from '../checks/registry';
 import { fieldById } from '../fields/registry';
 import { comparePositions, type Finding, type Fix, type Range, type TextEdit } from '../types';
 import { allStated, isValidPosition, itemAt, lineAt } from './locate';
-import { editsOverlap } from './text-edits';
+import { parseLine } from '../syntax/parser';
+import type { LineNode } from '../syntax/tree';
+import { applyEdits, editsOverlap } from './text-edits';
 import { convertNoteUnits, itemConversionEdits, numberIn, otherUnit, shorthandConversionEdits, shorthandPressures, writtenUnit, type GasUnit } from './unit-conversion';
 import type { ActionInfo } from './types';
 
@@ -33,6 +35,7 @@ export function codeActions(result: NoteResult, range: Range): ActionInfo[] {
   for (const f of result.findings) {
     if (!touches(f.range, range)) continue;
     for (const fix of f.fixes) {
+      if (!keepsValues(result, fix)) continue;
       actions.push({ title: fix.title, kind: 'quickfix', edits: [...fix.edits], findingCodes: [f.code], ...(fix.preferred ? { preferred: true } : {}) });
     }
   }
@@ -123,6 +126,35 @@ function shorthandActions(result: NoteResult, line: number): ActionInfo[] {
   return out;
 }
 
+/**
+ * Whether a fix keeps every value of the lines it edits readable: the line, re-parsed with the
+ * fix applied, holds at least as many values. (A guard: a fix that would break a line, such as
+ * a unit inserted inside a shorthand gas, is not offered.)
+ */
+export function keepsValues(result: NoteResult, fix: Fix): boolean {
+  const byLine = new Map<number, TextEdit[]>();
+  for (const e of fix.edits) {
+    if (e.range.start.line !== e.range.end.line) return true; // multi-line fixes are not checked here
+    const list = byLine.get(e.range.start.line) ?? [];
+    list.push(e);
+    byLine.set(e.range.start.line, list);
+  }
+  for (const [line, edits] of byLine) {
+    const node = lineAt(result, line);
+    if (!node) return false;
+    let text: string;
+    try {
+      text = applyEdits(node.text, edits.map((e) => ({ range: { start: { line: 0, character: e.range.start.character }, end: { line: 0, character: e.range.end.character } }, newText: e.newText })));
+    } catch {
+      return false;
+    }
+    if (/[\r\n]/.test(text)) continue;
+    const values = (n: LineNode) => (n.kind === 'section' ? n.items.filter((i) => i.value !== null).length : 0);
+    if (values(parseLine(text, line)) < values(node)) return false;
+  }
+  return true;
+}
+
 function preferredFix(f: Finding): Fix | undefined {
   return f.fixes.find((x) => x.preferred === true);
 }
@@ -144,7 +176,10 @@ function safeEdits(findings: readonly Finding[]): { edits: TextEdit[]; codes: st
 }
 
 function fixAllActions(result: NoteResult, range: Range): ActionInfo[] {
-  const withSafeFix = result.findings.filter((f) => preferredFix(f) !== undefined);
+  const withSafeFix = result.findings.filter((f) => {
+    const fix = preferredFix(f);
+    return fix !== undefined && keepsValues(result, fix);
+  });
   if (withSafeFix.length === 0) return [];
   const out: ActionInfo[] = [];
   const codesHere = [...new Set(withSafeFix.filter((f) => touches(f.range, range)).map((f) => f.code))];

@@ -42,6 +42,7 @@ function sectionSymbol(node: Extract<LineNode, { kind: 'section' }>): SymbolInfo
 }
 
 function timeDetail(result: NoteResult, tp: Timepoint): string {
+  if (tp.line === null) return 'values before the first timepoint';
   const node = tp.line === null ? null : result.analysis.tree.lines[tp.line];
   const written = node?.kind === 'timepoint' && node.time ? node.time.text : null;
   const computed = tp.time.minutes !== null ? clockText(tp.time.minutes) : tp.time.day !== null ? `day ${tp.time.day}` : null;

@@ -148,10 +148,10 @@ function unitsLineInsertion(result: NoteResult): number {
  * Edits that write every gas pressure of the note in `to` (PaO2, PaCO2, venous pressures,
  * end-tidal CO2, barometric pressure; shorthand gases too) and make the note's `units gas`
  * say `to`, adding the line when there is none. The note then reads back to the same values,
- * within rounding. Values whose unit could not be read are left as they are; a bare value
- * doubted by PN204 keeps its number and gets the unit it was read in written out, so that
- * nothing changes what it means. A converted value outside the field's usual range gets its
- * unit written, so that reading it bare in the new unit raises no doubt about the unit.
+ * within rounding. Values whose unit could not be read are left as they are. A value outside
+ * its field's usual range (or doubted by PN204) keeps its number as written, so that a likely
+ * slip stays recognisable, and gets the unit it was read in written out when it was bare.
+ * Converting twice changes nothing the second time.
  */
 export function convertNoteUnits(result: NoteResult, to: GasUnit): TextEdit[] {
   const edits: TextEdit[] = [];
@@ -199,22 +199,24 @@ export function convertNoteUnits(result: NoteResult, to: GasUnit): TextEdit[] {
 }
 
 /**
- * Whether a converted number may stay bare: only when the value is ordinary for its field, so
- * that reading it in the new gas unit raises no doubt about its unit (PN204).
+ * Whether a value is ordinary for its field (within its usual and possible ranges). Only
+ * ordinary values are converted: an unusual one keeps the number as written (a likely slip
+ * stays recognisable) and gets the unit it was read in written out when it was bare.
  */
-function mayStayBare(s: StatedValue, field: FieldDef): boolean {
-  return s.value !== null && within(s.value, field.soft) && within(s.value, field.hard);
+function ordinary(s: StatedValue, field: FieldDef): boolean {
+  return s.value !== null && !s.unitDoubt && within(s.value, field.soft) && within(s.value, field.hard);
+}
+
+/** Edits that keep the numbers as read and write their unit when the reading would change. */
+function keepAsRead(line: number, at: number, hasUnit: boolean, readUnit: string, bareAfter: GasUnit | null): TextEdit[] {
+  return hasUnit || bareAfter === readUnit ? [] : [{ range: lineRange(line, at, at), newText: ` ${writtenUnit(readUnit)}` }];
 }
 
 function valueEdits(s: StatedValue, field: FieldDef, to: GasUnit, bareAfter: GasUnit | null): TextEdit[] {
-  const bare = mayStayBare(s, field) || s.readUnit === to ? bareAfter : null;
   const item = s.item;
   const value = item.value!;
   const line = s.line;
-  if (s.unitDoubt) {
-    // Keep the number as read and write the unit it was read in.
-    return bare === s.readUnit ? [] : [{ range: lineRange(line, value.span.end, value.span.end), newText: ` ${writtenUnit(s.readUnit!)}` }];
-  }
+  if (!ordinary(s, field)) return keepAsRead(line, value.span.end, item.unit !== null, s.readUnit!, bareAfter);
   const edits: TextEdit[] = [];
   if (s.readUnit !== to) {
     const number = numberIn(s, field, to);
@@ -223,7 +225,7 @@ function valueEdits(s: StatedValue, field: FieldDef, to: GasUnit, bareAfter: Gas
   }
   if (item.unit) {
     if (!unitReadsAs(item.unit.text, field, to)) edits.push({ range: lineRange(line, item.unit.span.start, item.unit.span.end), newText: to });
-  } else if (bare !== to) {
+  } else if (bareAfter !== to) {
     edits.push({ range: lineRange(line, value.span.end, value.span.end), newText: ` ${to}` });
   }
   return edits;
@@ -232,28 +234,21 @@ function valueEdits(s: StatedValue, field: FieldDef, to: GasUnit, bareAfter: Gas
 function shorthandEdits(sh: ShorthandPressures, to: GasUnit, bareAfter: GasUnit | null): TextEdit[] {
   const line = sh.node.line;
   const readUnit = sh.parts[0]?.readUnit ?? null;
-  const ordinary = sh.parts.every((p) => {
-    const f = fieldById(p.fieldId);
-    return f !== undefined && mayStayBare(p, f);
-  });
-  const bare = ordinary || readUnit === to ? bareAfter : null;
   if (!readUnit || sh.parts.some((p) => p.readUnit !== readUnit || p.value === null)) return [];
-  if (sh.parts.some((p) => p.unitDoubt)) {
-    return sh.unit || bare === readUnit ? [] : [{ range: lineRange(line, sh.end, sh.end), newText: ` ${readUnit}` }];
-  }
+  const fields = sh.parts.map((p) => fieldById(p.fieldId));
+  if (sh.parts.some((p, i) => !fields[i] || !ordinary(p, fields[i]!))) return keepAsRead(line, sh.end, sh.unit !== null, readUnit, bareAfter);
   const edits: TextEdit[] = [];
   if (readUnit !== to) {
-    for (const s of sh.parts) {
-      const field = fieldById(s.fieldId);
-      const number = field ? numberIn(s, field, to) : null;
+    for (const [i, s] of sh.parts.entries()) {
+      const number = numberIn(s, fields[i]!, to);
       if (number === null || !s.item.value) return [];
       edits.push({ range: lineRange(line, s.item.value.span.start, s.item.value.span.end), newText: number });
     }
   }
-  const field = sh.parts[0] ? fieldById(sh.parts[0].fieldId) : undefined;
+  const field = fields[0];
   if (sh.unit) {
     if (!field || !unitReadsAs(sh.unit.text, field, to)) edits.push({ range: lineRange(line, sh.unit.span.start, sh.unit.span.end), newText: to });
-  } else if (bare !== to) {
+  } else if (bareAfter !== to) {
     edits.push({ range: lineRange(line, sh.end, sh.end), newText: ` ${to}` });
   }
   return edits;

@@ -1,0 +1,77 @@
+// The outline (timepoints, a header, section lines) and folding ranges.
+import { describe, expect, it } from 'vitest';
+import { checkNote } from '../../server/src/core/check-note';
+import { documentSymbols, foldingRanges, type SymbolInfo } from '../../server/src/core/service';
+import { note } from './cursor';
+
+const text = note(
+  '# an invented note',                                   // 0
+  'patient   age 58 y, sex female',                       // 1
+  'place     altitude 1650 m',                            // 2
+  '',                                                     // 3
+  '@ day 1 22:15  admitted 😀',                           // 4
+  'vent      mode VC, peep 8',                            // 5
+  'abg       7.29/49/74/23',                              // 6
+  '',                                                     // 7
+  '',                                                     // 8
+  '@ +3h45  PEEP raised',                                 // 9
+  'vent      peep 12',                                    // 10
+  'note      better',                                     // 11
+  '@ 09:00',                                              // 12
+  '',                                                     // 13
+);
+
+const shape = (s: SymbolInfo): unknown => ({ name: s.name, detail: s.detail, kind: s.kind, lines: [s.range.start.line, s.range.end.line], children: s.children.map((c) => c.name) });
+
+describe('documentSymbols', () => {
+  const symbols = documentSymbols(checkNote(text));
+
+  it('outlines the header and the timepoints, with section lines as children', () => {
+    expect(symbols.map(shape)).toEqual([
+      { name: 'header', detail: 'patient, place', kind: 'header', lines: [1, 2], children: ['patient', 'place'] },
+      { name: 'admitted 😀', detail: 'day 1 22:15', kind: 'timepoint', lines: [4, 6], children: ['vent', 'abg'] },
+      { name: 'PEEP raised', detail: '+3h45 (day 2, 02:00)', kind: 'timepoint', lines: [9, 11], children: ['vent', 'note'] },
+      { name: '09:00', detail: '09:00', kind: 'timepoint', lines: [12, 12], children: [] },
+    ]);
+  });
+
+  it('selects the `@` line, spans whole lines in UTF-16 and keeps children inside their parent', () => {
+    const admitted = symbols[1]!;
+    expect(admitted.selectionRange).toEqual({ start: { line: 4, character: 0 }, end: { line: 4, character: '@ day 1 22:15  admitted 😀'.length } });
+    expect(admitted.range.end).toEqual({ line: 6, character: 'abg       7.29/49/74/23'.length });
+    expect(admitted.children[0]?.detail).toBe('mode VC, peep 8');
+    for (const s of symbols) {
+      for (const c of s.children) {
+        expect(c.range.start.line).toBeGreaterThanOrEqual(s.range.start.line);
+        expect(c.range.end.line).toBeLessThanOrEqual(s.range.end.line);
+        expect(c.selectionRange.start.character).toBeGreaterThanOrEqual(c.range.start.character);
+        expect(c.selectionRange.end.character).toBeLessThanOrEqual(c.range.end.character);
+      }
+    }
+  });
+
+  it('outlines values before any `@` as an implicit first timepoint after the header', () => {
+    const implicit = documentSymbols(checkNote(note('patient age 60 y', 'vitals hr 80', 'abg po2 71', '@ 08:00', 'vitals hr 90')));
+    expect(implicit.map(shape)).toEqual([
+      { name: 'header', detail: 'patient', kind: 'header', lines: [0, 0], children: ['patient'] },
+      { name: 'start', detail: 'values before the first timepoint', kind: 'timepoint', lines: [1, 2], children: ['vitals', 'abg'] },
+      { name: '08:00', detail: '08:00', kind: 'timepoint', lines: [3, 4], children: ['vitals'] },
+    ]);
+  });
+
+  it('works on CRLF notes and returns nothing for an empty note', () => {
+    expect(documentSymbols(checkNote(text.replace(/\n/g, '\r\n'))).map(shape)).toEqual(symbols.map(shape));
+    expect(documentSymbols(checkNote(''))).toEqual([]);
+    expect(documentSymbols(checkNote('# only a comment\n\n'))).toEqual([]);
+  });
+});
+
+describe('foldingRanges', () => {
+  it('folds each timepoint of more than one line, without trailing blank lines', () => {
+    expect(foldingRanges(checkNote(text))).toEqual([{ startLine: 4, endLine: 6 }, { startLine: 9, endLine: 11 }]);
+  });
+
+  it('folds an implicit first timepoint from its first value line', () => {
+    expect(foldingRanges(checkNote(note('patient age 60 y', 'vitals hr 80', 'abg po2 71', '@ 08:00')))).toEqual([{ startLine: 1, endLine: 2 }]);
+  });
+});
