@@ -1,7 +1,8 @@
 // Applying editor-neutral edits: positions as LSP counts them, overlap rejected.
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { applyEdits, editsOverlap, OverlappingEditsError, type TextEdit } from '../../server/src/core/service';
+import { applyEdits, editsOverlap, OverlappingEditsError } from '../../server/src/core/service';
+import type { TextEdit } from '../../server/src/core/types';
 
 const edit = (line: number, from: number, to: number, newText: string, toLine = line): TextEdit => ({ range: { start: { line, character: from }, end: { line: toLine, character: to } }, newText });
 

@@ -14,6 +14,8 @@ import { comparePositions, type Finding } from './types';
 export interface NoteResult {
   readonly analysis: NoteAnalysis;
   readonly findings: readonly Finding[];
+  /** The settings the note was analysed with. */
+  readonly settings: Settings;
 }
 
 export function checkNote(text: string, settings: Partial<Settings> = {}): NoteResult {
@@ -70,7 +72,7 @@ export function runChecks(analysis: NoteAnalysis, settings: Settings, checks: re
     for (const f of own) findings.push(f);
   });
   findings.sort((a, b) => comparePositions(a.range.start, b.range.start) || a.code.localeCompare(b.code));
-  return { analysis, findings };
+  return { analysis, findings, settings };
 }
 
 function toFinding(check: CheckDef, r: Report): Finding {

@@ -129,9 +129,11 @@ function otherUnitIssue(item: ItemNode, field: FieldDef, line: number, readUnit:
   const value = item.value!;
   const written = value.kind === 'number' ? value.value : NaN;
   const inRead = convert(written, likely, readUnit);
-  const fixes: LineFix[] = [
-    { title: `Mark as ${likely.id}`, edits: [{ span: { start: value.span.end, end: value.span.end }, newText: ` ${likely.id}` }], preferred: false },
-  ];
+  // In a shorthand gas a unit belongs after the whole group (it applies to both pressures),
+  // so only the conversion is offered there.
+  const fixes: LineFix[] = item.implied === 'shorthand'
+    ? []
+    : [{ title: `Mark as ${likely.id}`, edits: [{ span: { start: value.span.end, end: value.span.end }, newText: ` ${likely.id}` }], preferred: false }];
   if (inRead !== null) {
     const decimals = readUnit.id === canonical.id ? field.decimals : Math.max(field.decimals, 1);
     fixes.push({ title: `Convert to ${formatNumber(inRead, decimals)} ${readUnit.id}`, edits: [{ span: value.span, newText: formatNumber(inRead, decimals) }] });

@@ -18,21 +18,16 @@ function bicarbonate(c: DeriveContext): Term | null {
   return c.field('hco3_serum', 'HCO3') ?? c.field('hco3', 'HCO3');
 }
 
-const classifications = new WeakMap<DeriveContext, AcidBaseClassification | null>();
-
-/** The acid–base classification of this timepoint's arterial gas (computed once). */
+/** The acid–base classification of this timepoint's arterial gas (computed once per timepoint). */
 export function classification(c: DeriveContext): AcidBaseClassification | null {
-  if (classifications.has(c)) return classifications.get(c) ?? null;
-  const ph = c.field('ph');
-  const paco2 = c.field('paco2');
-  const hco3 = c.field('hco3');
-  let result: AcidBaseClassification | null = null;
-  if (ph && paco2 && hco3) {
+  return c.memo('acid-base-classification', () => {
+    const ph = c.field('ph');
+    const paco2 = c.field('paco2');
+    const hco3 = c.field('hco3');
+    if (!ph || !paco2 || !hco3) return null;
     const gap = c.derived('anion_gap_albumin_corrected') ?? c.derived('anion_gap');
-    result = classifyAcidBase({ ph: ph.value, paco2Mmhg: paco2.value, hco3MmolL: hco3.value, anionGapMmolL: gap?.value });
-  }
-  classifications.set(c, result);
-  return result;
+    return classifyAcidBase({ ph: ph.value, paco2Mmhg: paco2.value, hco3MmolL: hco3.value, anionGapMmolL: gap?.value });
+  });
 }
 
 export const hco3Calculated = defineDerived({

@@ -41,12 +41,21 @@ export function defineDerived(def: DerivedDef): DerivedDef {
 
 export class DeriveContext {
   private readonly cache = new Map<string, DerivedValue | MissingValue | NotApplicable | null>();
+  private readonly memos = new Map<string, unknown>();
 
   constructor(
     readonly timepoint: Timepoint,
     readonly settings: Settings,
     private readonly defs: ReadonlyMap<string, DerivedDef>,
   ) {}
+
+  /** A value computed once per timepoint and shared by several definitions (e.g. the acid–base classification). */
+  memo<T>(key: string, compute: () => T): T {
+    if (this.memos.has(key)) return this.memos.get(key) as T;
+    const value = compute();
+    this.memos.set(key, value);
+    return value;
+  }
 
   /** A usable stated value in force, as a formula input. */
   field(id: string, name?: string): Term | null {

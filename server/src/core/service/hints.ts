@@ -102,11 +102,17 @@ export function inlayHints(result: NoteResult, lines: LineSpan, options: HintOpt
   const shown = new Set<string>();
   const inRange = (line: number | null): line is number => line !== null && line >= lines.start && line <= lines.end;
 
+  const timepoints = result.analysis.timeline.timepoints;
+  const headerInRange = lines.start < (timepoints[0]?.startLine ?? Number.POSITIVE_INFINITY);
   for (const derivation of result.analysis.derivations) {
-    const all = derivation.derived;
+    const tp = timepoints[derivation.timepoint];
+    // Only timepoints whose lines meet the range; others can only give the header's place hint.
+    const outside = tp !== undefined && (tp.endLine < lines.start || tp.startLine > lines.end);
+    if (outside && !headerInRange) continue;
+    const all = outside ? derivation.derived.filter((d) => d.id === 'barometric') : derivation.derived;
     for (const category of HINT_CATEGORIES) {
       if (!options.categories.has(category)) continue;
-      if (category === 'acid-base') {
+      if (category === 'acid-base' && !outside) {
         for (const reading of derivation.interpretations) {
           if (reading.topic !== 'acid-base' || !reading.notable || !inRange(reading.line)) continue;
           const label = acidBaseLabel(reading.text);

@@ -17,6 +17,6 @@ export { hoverAt, sectionMarkdown, clockText } from './hover';
 export { derivedHover, derivedBody, derivedValueText } from './derived-hover';
 export { inlayHints, acidBaseLabel, carriedInputs, CARRIED_MARK, HINT_PICKS, ACID_BASE_READING_ID, type HintOptions } from './hints';
 export { completionsAt } from './complete';
-export { codeActions } from './actions';
+export { codeActions, keepsValues } from './actions';
 export { convertNoteUnits, type GasUnit } from './unit-conversion';
 export { documentSymbols, foldingRanges } from './symbols';

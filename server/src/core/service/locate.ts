@@ -33,10 +33,6 @@ export function contentStart(node: LineNode): number {
   return i;
 }
 
-export function inComment(node: LineNode, character: number): boolean {
-  return node.comment !== null && character > node.comment.span.start;
-}
-
 export type ItemPart = 'key' | 'value' | 'unit';
 
 export interface ItemHit {

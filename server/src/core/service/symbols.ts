@@ -7,7 +7,7 @@
 import type { NoteResult } from '../check-note';
 import type { Timepoint } from '../analysis/model';
 import { sectionById } from '../fields/sections';
-import type { LineNode } from '../syntax/tree';
+import type { LineNode, SectionLine } from '../syntax/tree';
 import { clockText } from './hover';
 import { contentEnd, contentStart } from './locate';
 import type { FoldingRangeInfo, SymbolInfo } from './types';
@@ -27,7 +27,7 @@ function wholeLines(lines: readonly LineNode[], start: number, end: number) {
   return { start: { line: start, character: 0 }, end: { line: end, character: lines[end]?.text.length ?? 0 } };
 }
 
-function sectionSymbol(node: Extract<LineNode, { kind: 'section' }>): SymbolInfo {
+function sectionSymbol(node: SectionLine): SymbolInfo {
   const from = node.items[0]?.span.start ?? node.prose?.span.start ?? null;
   const detail = from === null ? '' : node.text.slice(from, contentEnd(node));
   const selection = { start: { line: node.line, character: node.sectionToken.span.start }, end: { line: node.line, character: node.sectionToken.span.end } };
@@ -60,17 +60,17 @@ export function documentSymbols(result: NoteResult): SymbolInfo[] {
   const implicit = timepoints[0]?.line === null ? timepoints[0] : undefined;
   const implicitStart = implicit ? firstValueLine(lines, firstTpLine) : null;
   const headerEnd = (implicitStart ?? firstTpLine) - 1;
-  const headerLines = lines.filter((l) => l.line <= headerEnd && l.kind === 'section' && sectionById(l.section).kind === 'header');
+  const headerLines = lines.filter((l): l is SectionLine => l.line <= headerEnd && l.kind === 'section' && sectionById(l.section).kind === 'header');
   const firstHeader = lines.find((l) => l.line <= headerEnd && isContent(l));
   if (headerLines.length > 0 && firstHeader) {
     const end = lastFilledLine(lines, firstHeader.line, headerEnd);
     symbols.push({
       name: 'header',
-      detail: [...new Set(headerLines.map((l) => (l.kind === 'section' ? l.section : '')))].join(', '),
+      detail: [...new Set(headerLines.map((l) => l.section))].join(', '),
       kind: 'header',
       range: wholeLines(lines, firstHeader.line, end),
       selectionRange: wholeLines(lines, firstHeader.line, firstHeader.line),
-      children: headerLines.map((l) => sectionSymbol(l as Extract<LineNode, { kind: 'section' }>)),
+      children: headerLines.map(sectionSymbol),
     });
   }
 
