@@ -48,18 +48,34 @@ function alt(words) {
     const key = w.toLowerCase().replace(/\s+/g, ' ');
     if (!seen.has(key)) seen.set(key, w);
   }
-  const list = [...seen.values()].sort((a, b) => b.length - a.length || a.toLowerCase().localeCompare(b.toLowerCase()));
+  // Longest first; ties in code-unit order (not locale order, so the output is the same everywhere).
+  const list = [...seen.values()].sort((a, b) => b.length - a.length || (a.toLowerCase() < b.toLowerCase() ? -1 : a.toLowerCase() > b.toLowerCase() ? 1 : 0));
   return `(?:${list.map(ci).join('|')})`;
 }
 
-/** Preceded by the line start, a blank or a comma: where a chunk may start. */
-const START = '(?<![^\\s,])';
-/** Followed by the line end, a blank, a comma or a comment: where a chunk ends. */
-const END = '(?![^\\s,#])';
+/**
+ * Where a chunk starts: after the line start, a blank or a comma, except a comma between two
+ * digits (a decimal comma, which the lexer keeps inside the chunk).
+ */
+const START = '(?<![^\\s,])(?!(?<=[0-9],)[0-9])';
+/**
+ * Where a chunk ends: the line end, a blank, a comma or a comment, except a comma between two
+ * digits, which the lexer keeps inside the chunk (a decimal comma).
+ */
+const END = '(?![^\\s,#]|(?<=[0-9]),[0-9])';
+/** The rest of a chunk, decimal commas included. */
+const CHUNK_REST = '(?:[^\\s,#]|(?<=[0-9]),(?=[0-9]))*';
 /** A number as the lexer reads it: sign, digits, a decimal point or comma between digits, or `.5`. */
 const NUM = '[-+−]?(?:[0-9]+(?:[.,][0-9]+)?|\\.[0-9]+)';
-/** The start of a number (for "not followed by a number"). */
+/** The start of a number: a chunk that starts so is a value, never a key or a unit. */
 const NUM_START = '[-+−]?\\.?[0-9]';
+/** A number read as far as the lexer reads it (a shorter number would leave digits behind). */
+const NUM_MAX = '[-+−]?(?:[0-9]+[.,][0-9]+|\\.[0-9]+|[0-9]+(?![.,][0-9]))(?![0-9])';
+/**
+ * A chunk that starts with a number but is no value for the parser: what follows the number
+ * starts with a character and a digit, and the chunk holds a slash (`96/58mmHg`, `1/2/x`).
+ */
+const UNREADABLE = `${NUM_MAX}(?=[^\\s#][0-9])(?=(?:[^\\s,#/]|,(?=[0-9]))*/)[^\\s#]${CHUNK_REST}`;
 /** A clock the parser accepts: 00:00 to 23:59, one or two hour digits. */
 const CLOCK = '(?:[01]?[0-9]|2[0-3]):[0-5][0-9]';
 /** An offset the parser accepts: +1d, +1d6h, +1d6h30, +1d30m, +2h, +2h30, +2h30m, +45m, +45min. */
@@ -67,6 +83,8 @@ const MIN = '(?:[mM][iI][nN]|[mM])';
 const OFFSET = `\\+(?:[0-9]+[dD](?:[0-9]+[hH](?:[0-9]+${MIN}?)?|[0-9]+${MIN})?|[0-9]+[hH](?:[0-9]+${MIN}?)?|[0-9]+${MIN})`;
 /** Prose: from a character that is not a blank to the last such character before a comment. */
 const PROSE = '[^\\s#](?:[^#]*[^\\s#])?';
+/** Blanks and commas before the first chunk of a line (the lexer skips both). */
+const LEAD = '^[\\s,]*';
 
 const sc = (name) => `${name}.pneumark`;
 
@@ -100,73 +118,175 @@ function deviceWords(FIELDS) {
 }
 
 // ── rule builders ──────────────────────────────────────────────────────────
+//
+// A rule's regex and its captures are assembled together: `cap(scope, regex)` is a capture
+// group, numbered in the order the groups open, so the numbers never drift from the regex.
+
+function cap(capture, regex) {
+  return { capture: typeof capture === 'string' ? { name: sc(capture) } : capture, regex };
+}
+
+/** Joins strings and `cap` parts into `{ regex, captures }`. Plain strings hold no capture groups. */
+function assemble(...parts) {
+  const captures = {};
+  let count = 0;
+  const walk = (part) => {
+    if (typeof part === 'string') {
+      if (/(^|[^\\])\((?!\?)/.test(part)) throw new Error(`capture group in a plain part: ${part}`);
+      return part;
+    }
+    if (Array.isArray(part)) return part.map(walk).join('');
+    const index = ++count;
+    captures[index] = part.capture;
+    return `(${walk(part.regex)})`;
+  };
+  const regex = parts.map(walk).join('');
+  return { regex, captures };
+}
 
 const numeric = { name: sc('constant.numeric'), patterns: [{ include: '#decimal-comma' }] };
-const unit = { name: sc('keyword.other.unit') };
-const unknownUnit = { name: sc('keyword.other.unit.unknown') };
 
 /**
- * What may follow a value after blanks: a known unit (always, as in the parser, even when the
- * word is also a key), or an unknown word that is not a key of the section and is not
- * followed by a number (the parser keeps it as the unit, to report it). Two capture groups.
+ * A unit after blanks: a known unit (always, as in the parser, even when the word is also a
+ * key), or an unknown word of at most 12 characters that is not a key of the section and is not
+ * followed by a number (the parser keeps it as the unit, to report it).
  */
 function spacedUnit(units, keys) {
-  return `\\s+(?:(${units})${END}|(?!${keys}${END})([^\\s,#0-9.+\\-−][^\\s,#]{0,11})${END}(?!\\s+${NUM_START}))`;
-}
-
-function numberRule(units, keys) {
-  return {
-    comment: 'A number, with a unit glued to it (89%) or after blanks (89 %).',
-    match: `${START}(${NUM})(?:(${units})${END}|([^\\s,#]+)|${spacedUnit(units, keys)})?`,
-    captures: { 1: numeric, 2: unit, 3: unknownUnit, 4: unit, 5: unknownUnit },
-  };
-}
-
-function slashRules(kind, units, keys) {
-  const gas = kind === 'shorthand';
-  const group = gas ? `${NUM}/${NUM}(?:/${NUM})?(?:/${NUM})?` : `${NUM}/${NUM}`;
   return [
-    {
-      comment: gas ? 'Shorthand gas: pH/PCO2/PO2/HCO3 (2 to 4 numbers), optionally a unit for the pressures.' : 'A pair of numbers, such as a blood pressure 96/58.',
-      match: `${START}(${group})${END}(?:${spacedUnit(units, keys)})?`,
-      captures: {
-        1: { name: sc(gas ? 'meta.shorthand-gas' : 'meta.pair'), patterns: [{ include: gas ? '#shorthand-parts' : '#pair-parts' }] },
-        2: unit,
-        3: unknownUnit,
-      },
-    },
-    {
-      comment: gas ? 'Numbers joined by slashes that do not read as a shorthand gas (more than 4 numbers, or not numbers).' : 'Numbers joined by slashes that do not read as a pair.',
-      match: `${START}${NUM}/[-+−.0-9][^\\s,#]*`,
-      name: sc(gas ? 'invalid.illegal.shorthand-gas' : 'invalid.illegal.pair'),
-    },
+    '\\s+(?:',
+    cap('keyword.other.unit', units), END,
+    `|(?!${keys}${END})(?!${NUM_START})`, cap('keyword.other.unit.unknown', '[^\\s,#]{1,12}'), END, `(?!\\s+${NUM_START})`,
+    ')',
   ];
 }
 
+/** A number with its unit: glued (`89%`, `38.4C`) or after blanks (`89 %`). */
+function numberWithUnit(units, keys) {
+  return [
+    cap(numeric, NUM),
+    '(?:',
+    cap('keyword.other.unit', units), END,
+    '|', cap('keyword.other.unit.unknown', `[^\\s,#]${CHUNK_REST}`),
+    '|', spacedUnit(units, keys),
+    ')?',
+  ];
+}
+
+/** Blanks and commas between the section word and the lead value (commas scoped as separators). */
+const leadGap = cap({ patterns: [{ include: '#item-separator' }] }, '[\\s,]+');
+
+const pair = (scope) => ({ name: sc(scope), patterns: [{ include: '#pair-parts' }] });
+const shorthand = { name: sc('meta.shorthand-gas'), patterns: [{ include: '#shorthand-parts' }] };
+
+/** `min` to `max` numbers joined by slashes (optional parts nest, so no group repeats a quantifier). */
+function slashGroup(min, max) {
+  let optional = '';
+  for (let i = max; i > min; i--) optional = `(?:/${NUM}${optional})?`;
+  return Array.from({ length: min }, () => NUM).join('/') + optional;
+}
+const SHORTHAND = slashGroup(2, 4);
+const PAIR = slashGroup(2, 2);
+/** A slash group the parser reads as a pair but no field uses: 3 or more numbers. */
+const LONG_PAIR = slashGroup(3, 12);
+
+/** The lead of an abg or vbg line: a shorthand gas and the unit of its pressures. */
+function shorthandLead(units, keys) {
+  return ['(?:', leadGap, cap(shorthand, SHORTHAND), END, '(?:', spacedUnit(units, keys), ')?)?'];
+}
+
+/** Values written where no key comes before them (the parser reports them), or a misplaced shorthand. */
+function strayRules(gas, units) {
+  const slash = assemble(START, cap(gas ? shorthand : pair('meta.pair'), gas ? SHORTHAND : PAIR), END);
+  const number = assemble(START, cap(numeric, NUM), '(?:', cap('keyword.other.unit', units), END, '|', cap('keyword.other.unit.unknown', `[^\\s,#]${CHUNK_REST}`), ')?');
+  return [
+    {
+      comment: gas ? 'A shorthand gas not at the start of the line.' : 'Numbers joined by a slash with no key before them.',
+      match: slash.regex,
+      captures: slash.captures,
+    },
+    {
+      comment: gas ? 'Numbers joined by slashes that do not read as a shorthand gas (more than 4 numbers, or not numbers).' : 'A chunk that starts with a number but does not read as a value.',
+      match: `${START}(?:${LONG_PAIR}${END}|${UNREADABLE})`,
+      name: sc(gas ? 'invalid.illegal.shorthand-gas' : 'invalid.illegal.pair'),
+    },
+    { comment: 'A number with no key before it.', match: number.regex, captures: number.captures },
+  ];
+}
+
+/** `key value [unit]`: a key of the section (or an unknown word in key position) and its value. */
+function keyValueRule(units, keys) {
+  const rule = assemble(
+    START,
+    '(?:', cap('variable.other.key', keys), END, '|', `(?!${NUM_START})`, cap('variable.other.key.unknown', `[^\\s,#]${CHUNK_REST}`), ')',
+    '(?:\\s+(?:',
+    cap(pair('meta.pair'), PAIR), END, '(?:', spacedUnit(units, keys), ')?',
+    '|', cap('invalid.illegal.pair', LONG_PAIR), END, '(?:', spacedUnit(units, keys), ')?',
+    '|', cap('invalid.illegal.pair', UNREADABLE),
+    '|', numberWithUnit(units, keys),
+    '))?',
+  );
+  return { comment: 'An item: a key, then its value: a number, or two numbers joined by a slash (bp 96/58), then a unit.', match: rule.regex, captures: rule.captures };
+}
+
+/** A key that takes a word (`sex female`, `mode VC`, `gas kPa`, `device cannula`). */
 function wordItemRule(field, sectionKeys) {
   const known = Object.keys(field.words ?? {});
-  const other = field.openWords ? 'constant.other.word' : 'constant.other.word.unknown';
+  const rule = assemble(
+    START, cap('variable.other.key', alt(field.aliases)), END,
+    '(?:\\s+(?:',
+    cap('constant.language', alt(known)), END,
+    `|(?!${sectionKeys}${END})`, cap(field.openWords ? 'constant.other.word' : 'constant.other.word.unknown', `[^\\s,#]${CHUNK_REST}`),
+    '))?',
+  );
   return {
     comment: `\`${field.aliases[0]}\` takes a word: ${[...new Set(Object.values(field.words ?? {}))].join(', ')}${field.openWords ? ', or any word' : ''}.`,
-    match: `${START}(${alt(field.aliases)})${END}(?:\\s+(?:(${alt(known)})${END}|(?!${sectionKeys}${END})([^\\s,#]+)))?`,
-    captures: { 1: { name: sc('variable.other.key') }, 2: { name: sc('constant.language') }, 3: { name: sc(other) } },
+    match: rule.regex,
+    captures: rule.captures,
   };
 }
 
 function itemPatterns({ FIELDS }, sectionId, units) {
-  const keyList = keysOf(FIELDS, sectionId);
-  const keys = alt(keyList);
+  const keys = alt(keysOf(FIELDS, sectionId));
   const gas = sectionId === 'abg' || sectionId === 'vbg';
   const wordFields = FIELDS.filter((f) => f.kind === 'word' && sectionId !== null && f.sections.includes(sectionId));
   return [
     { include: '#comment' },
     { include: '#item-separator' },
-    ...slashRules(gas ? 'shorthand' : 'pair', units, keys),
+    ...strayRules(gas, units),
     ...wordFields.map((f) => wordItemRule(f, keys)),
-    numberRule(units, keys),
-    { comment: 'A key of this section.', match: `${START}${keys}${END}`, name: sc('variable.other.key') },
-    { include: '#unknown-key' },
+    keyValueRule(units, keys),
   ];
+}
+
+/** A timepoint: `@`, then `day N [HH:MM]`, `HH:MM` or an offset, then an optional label. */
+function timepointRule() {
+  const GAP = '[\\s,]+';
+  const begin = assemble(
+    LEAD, cap('keyword.operator.timepoint', '@'), '[\\s,]*(?:',
+    // day N [HH:MM]; after `day`, a chunk that is no day number, or no clock after it, is marked
+    cap('keyword.other.day', ci('day')), '(?:', GAP, '(?:',
+    cap('constant.other.time', '[0-9]+'), '(?:', GAP, '(?:', cap('constant.other.time', CLOCK), END, '|', cap('invalid.illegal.time', `[0-9][^\\s,#:]*:${CHUNK_REST}`), '))?', END,
+    '|', cap('invalid.illegal.time', `[^\\s,#]${CHUNK_REST}`),
+    '))?', END,
+    '|', cap('constant.other.time', CLOCK), END,
+    '|', cap('constant.other.time', OFFSET), END,
+    // an offset, clock or date that does not read, or any chunk starting with a digit
+    '|', cap('invalid.illegal.time', `[0-9+]${CHUNK_REST}`),
+    ')?',
+  );
+  return {
+    comment: 'A timepoint: `@`, then `day N [HH:MM]`, `HH:MM` or `+2h30`, then an optional label. Times the parser does not accept are marked.',
+    begin: begin.regex,
+    beginCaptures: begin.captures,
+    end: '$',
+    name: sc('meta.timepoint'),
+    patterns: [{ include: '#comment' }, { match: PROSE, name: sc('entity.name.section.timepoint') }],
+  };
+}
+
+function unknownBegin() {
+  const begin = assemble(LEAD, cap('variable.other.section.unknown', `[^\\s,#@]${CHUNK_REST}`));
+  return { begin: begin.regex, beginCaptures: begin.captures };
 }
 
 // ── the grammar ────────────────────────────────────────────────────────────
@@ -186,15 +306,10 @@ export function buildGrammar({ SECTIONS, FIELDS, UNITS }) {
     },
     'decimal-comma': {
       comment: 'A comma between two digits is read as a decimal point and reported (PN103).',
-      match: '[-+−]?[0-9]+,[0-9]+',
+      match: '(?<![0-9])[-+−]?[0-9]+,[0-9]+',
       name: sc('invalid.deprecated.decimal-comma'),
     },
     'item-separator': { match: ',', name: sc('punctuation.separator.item') },
-    'unknown-key': {
-      comment: 'A word in key position that is not a key of the section.',
-      match: `${START}[^\\s,#0-9.+\\-−][^\\s,#]*`,
-      name: sc('variable.other.key.unknown'),
-    },
     'shorthand-parts': {
       patterns: [
         { match: NUM, captures: { 0: numeric } },
@@ -207,29 +322,7 @@ export function buildGrammar({ SECTIONS, FIELDS, UNITS }) {
         { match: '/', name: sc('punctuation.separator.pair') },
       ],
     },
-    timepoint: {
-      comment: 'A timepoint: `@`, then `day N [HH:MM]`, `HH:MM` or `+2h30`, then an optional label.',
-      begin:
-        `^\\s*(@)\\s*(?:` +
-        `(${ci('day')})(?:\\s+([0-9]+)(?:\\s+(${CLOCK})(?![^\\s#]))?)?(?:\\s+([0-9][^\\s#:]*:[^\\s#]*))?(?![^\\s#])` +
-        `|(${CLOCK})(?![^\\s#])` +
-        `|(${OFFSET})(?![^\\s#])` +
-        `|([0-9+][^\\s#]*)` +
-        `)?`,
-      beginCaptures: {
-        1: { name: sc('keyword.operator.timepoint') },
-        2: { name: sc('keyword.other.day') },
-        3: { name: sc('constant.other.time') },
-        4: { name: sc('constant.other.time') },
-        5: { name: sc('invalid.illegal.time') },
-        6: { name: sc('constant.other.time') },
-        7: { name: sc('constant.other.time') },
-        8: { name: sc('invalid.illegal.time') },
-      },
-      end: '$',
-      name: sc('meta.timepoint'),
-      patterns: [{ include: '#comment' }, { match: PROSE, name: sc('entity.name.section.timepoint') }],
-    },
+    timepoint: timepointRule(),
   };
 
   const patterns = [{ include: '#comment' }, { include: '#timepoint' }];
@@ -237,11 +330,12 @@ export function buildGrammar({ SECTIONS, FIELDS, UNITS }) {
     const names = alt(sectionNames(section));
     const ruleName = `section-${section.id}`;
     patterns.push({ include: `#${ruleName}` });
-    const sectionWord = { name: sc('keyword.other.section') };
+    const sectionWord = cap('keyword.other.section', names);
     if (section.kind === 'prose') {
+      const begin = assemble(LEAD, sectionWord, END);
       repository[ruleName] = {
-        begin: `^\\s*(${names})${END}`,
-        beginCaptures: { 1: sectionWord },
+        begin: begin.regex,
+        beginCaptures: begin.captures,
         end: '$',
         name: sc(`meta.line.${section.id}`),
         patterns: [{ include: '#comment' }, { match: PROSE, name: sc('string.unquoted.prose') }],
@@ -249,32 +343,30 @@ export function buildGrammar({ SECTIONS, FIELDS, UNITS }) {
       continue;
     }
     const itemsName = `items-${section.id}`;
-    if (section.id === 'oxygen') {
-      repository[ruleName] = {
-        comment: 'An oxygen line starts with the device; a number right after it is its flow.',
-        begin: `^\\s*(${names})${END}(?:\\s+(${alt(deviceWords(FIELDS))})${END})?`,
-        beginCaptures: { 1: sectionWord, 2: { name: sc('constant.language') } },
-        end: '$',
-        name: sc(`meta.line.${section.id}`),
-        patterns: [{ include: `#${itemsName}` }],
-      };
-    } else {
-      repository[ruleName] = {
-        begin: `^\\s*(${names})${END}`,
-        beginCaptures: { 1: sectionWord },
-        end: '$',
-        name: sc(`meta.line.${section.id}`),
-        patterns: [{ include: `#${itemsName}` }],
-      };
-    }
+    const keys = alt(keysOf(FIELDS, section.id));
+    const lead = {
+      // An oxygen line starts with the device; a number right after it is its flow (or CPAP level).
+      oxygen: ['(?:', leadGap, cap('constant.language', alt(deviceWords(FIELDS))), END, '(?:\\s+', numberWithUnit(units, keys), ')?)?'],
+      abg: shorthandLead(units, keys),
+      vbg: shorthandLead(units, keys),
+    }[section.id];
+    const begin = assemble(LEAD, sectionWord, END, lead ?? '');
+    repository[ruleName] = {
+      ...(section.id === 'oxygen' ? { comment: 'An oxygen line starts with the device; a number right after it is its flow (or CPAP level).' } : {}),
+      ...(lead && section.id !== 'oxygen' ? { comment: 'A blood gas line may start with the shorthand pH/PCO2/PO2/HCO3 and the unit of its pressures.' } : {}),
+      begin: begin.regex,
+      beginCaptures: begin.captures,
+      end: '$',
+      name: sc(`meta.line.${section.id}`),
+      patterns: [{ include: `#${itemsName}` }],
+    };
     repository[itemsName] = { patterns: itemPatterns({ FIELDS }, section.id, units) };
   }
 
   patterns.push({ include: '#unknown-line' });
   repository['unknown-line'] = {
     comment: 'A line that does not start with a section or `@`: the parser reports it (PN101); its items are still shown.',
-    begin: '^\\s*([^\\s,#@][^\\s,#]*)',
-    beginCaptures: { 1: { name: sc('variable.other.section.unknown') } },
+    ...unknownBegin(),
     end: '$',
     name: sc('meta.line.unknown'),
     patterns: [{ include: '#items-any' }],
@@ -308,7 +400,8 @@ function choice(words) {
  */
 export function buildSnippets({ FIELDS }) {
   const words = (id) => [...new Set(Object.values(FIELDS.find((f) => f.id === id)?.words ?? {}))];
-  const devices = words('device');
+  // Devices with a flow first (the snippet goes on with the flow); room air last.
+  const devices = [...words('device').filter((w) => w !== 'room air'), 'room air'];
   const modes = words('mode');
   const col = (section) => section.padEnd(10);
   return {

@@ -156,7 +156,10 @@ function labelAt(x: number, xs: readonly number[]): string {
 
 window.addEventListener('message', (event: MessageEvent<ToWebview>) => {
   const m = event.data;
-  if (m.type === 'trends') render(m.points, m.note);
+  if (m.type === 'trends') {
+    lastNote = m.note;
+    render(m.points, m.note);
+  }
   if (m.type === 'error') {
     const main = document.getElementById('charts');
     if (main) main.textContent = `Trends could not be loaded: ${m.message}`;
@@ -172,5 +175,9 @@ window.addEventListener('resize', () => {
     for (const c of charts) c.setSize({ width, height: 170 });
   }, 100);
 });
+
+// Redraw with the new colours when the editor theme changes (VS Code swaps the body's classes).
+let lastNote = '';
+new MutationObserver(() => render(points, lastNote)).observe(document.body, { attributes: true, attributeFilter: ['class'] });
 
 vscode.postMessage({ type: 'ready' });

@@ -1,0 +1,93 @@
+// The extension in a real VS Code workbench (code-server) in a real browser (headless Chromium).
+// Every assertion reads the page itself; screenshots go to test-output/e2e/.
+import { join } from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { goTo, openFile, runCommand, screenshot, setTheme, startWorkbench, type Workbench } from './harness';
+
+let wb: Workbench;
+
+beforeAll(async () => {
+  wb = await startWorkbench(join(process.cwd(), 'pneumark.vsix'));
+}, 600_000);
+
+afterAll(async () => {
+  await wb?.close();
+});
+
+describe('Pneumark in VS Code', () => {
+  it('detects the language of a .pneu note', async () => {
+    await openFile(wb.page, 'icu-ventilated-lung-injury.pneu');
+    const mode = wb.page.locator('#status\\.editor\\.mode');
+    await expect.poll(async () => (await mode.textContent())?.trim(), { timeout: 30000 }).toBe('Pneumark');
+    await screenshot(wb.page, '01-note-open');
+  });
+
+  it('shows inlay hints with derived values', async () => {
+    const lines = wb.page.locator('.editor-instance .monaco-editor .view-lines').first();
+    await expect.poll(async () => (await lines.textContent()) ?? '', { timeout: 60000 }).toMatch(/P\/F\s93/);
+    expect(await lines.textContent()).toMatch(/ΔP\s19/);
+    await screenshot(wb.page, '02-inlay-hints');
+  });
+
+  it('lists findings in the Problems panel with our codes', async () => {
+    await wb.page.keyboard.press('Control+Shift+M');
+    const rows = wb.page.locator('.markers-panel .monaco-list-row');
+    await expect.poll(async () => (await rows.allTextContents()).join('\n'), { timeout: 30000 }).toMatch(/PN405/);
+    expect((await rows.allTextContents()).join('\n')).toMatch(/Driving pressure is 19 cmH2O/);
+    await screenshot(wb.page, '03-problems');
+  });
+
+  it('shows a hover with the formula and where the inputs came from', async () => {
+    await wb.page.locator('.editor-instance .monaco-editor .view-line span', { hasText: 'plateau' }).first().hover();
+    const hover = wb.page.locator('.monaco-hover:not(.hidden)').first();
+    await hover.waitFor({ timeout: 20000 });
+    await expect.poll(async () => (await hover.textContent()) ?? '', { timeout: 20000 }).toMatch(/Plateau pressure/);
+    expect(await hover.textContent()).toMatch(/licensed practice/);
+    await screenshot(wb.page, '04-hover');
+    await wb.page.keyboard.press('Escape');
+  });
+
+  it('applies a quick fix', async () => {
+    await openFile(wb.page, 'broken-note.pneu');
+    await goTo(wb.page, 8, 15);
+    await wb.page.keyboard.press('Control+.');
+    const item = wb.page.locator('.action-widget .monaco-list-row', { hasText: 'Write `7.35`' }).first();
+    await item.waitFor({ timeout: 20000 });
+    await screenshot(wb.page, '05-quick-fix');
+    await wb.page.keyboard.press('Enter');
+    const lines = wb.page.locator('.editor-instance .monaco-editor .view-lines').first();
+    await expect.poll(async () => (await lines.textContent()) ?? '', { timeout: 20000 }).toMatch(/ph\s7\.35,\spco2\s41/);
+  });
+
+  it('opens the trend view and draws the charts', async () => {
+    await openFile(wb.page, 'icu-ventilated-lung-injury.pneu');
+    await runCommand(wb.page, 'Pneumark: Show Trends');
+    await expect.poll(async () => {
+      let canvases = 0;
+      for (const frame of wb.page.frames()) canvases += await frame.locator('canvas').count().catch(() => 0);
+      return canvases;
+    }, { timeout: 60000 }).toBeGreaterThanOrEqual(4);
+    const texts = async (selector: string) => {
+      const out: string[] = [];
+      for (const frame of wb.page.frames()) out.push(...(await frame.locator(selector).allTextContents().catch(() => [])));
+      return out;
+    };
+    expect(await texts('.panel h2')).toEqual(expect.arrayContaining(['Oxygenation', 'Carbon dioxide and pH', 'Saturation and FiO2', 'Ventilator']));
+    expect((await texts('#title')).join()).toMatch(/icu-ventilated-lung-injury\.pneu/);
+    const legend = (await texts('.u-legend .u-label')).join(' ');
+    for (const series of ['PaO2', 'P/F', 'PaCO2', 'pH', 'SpO2', 'FiO2', 'PEEP', 'ΔP', 'Cstat']) expect(legend).toContain(series);
+    await screenshot(wb.page, '06-trends-dark');
+  });
+
+  it('keeps the trend view readable in light and high-contrast themes', async () => {
+    for (const [theme, name] of [['Light Modern', '07-trends-light'], ['Dark High Contrast', '08-trends-high-contrast']] as const) {
+      await setTheme(wb.page, theme);
+      await expect.poll(async () => {
+        let canvases = 0;
+        for (const frame of wb.page.frames()) canvases += await frame.locator('canvas').count().catch(() => 0);
+        return canvases;
+      }, { timeout: 30000 }).toBeGreaterThanOrEqual(4);
+      await screenshot(wb.page, name);
+    }
+  });
+});
