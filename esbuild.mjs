@@ -5,6 +5,17 @@ import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 
 const production = process.argv.includes('--production');
 
+/**
+ * No network in the editor side: `net` (pulled in by the protocol library for transports we never
+ * use) resolves to a stub that refuses, so no network module is reachable from the bundles.
+ */
+const noNetwork = {
+  name: 'pneumark-no-network',
+  setup(b) {
+    b.onResolve({ filter: /^(node:)?(net|http|https|http2|tls|dgram|dns)$/ }, () => ({ path: new URL('./server/src/node/no-network.ts', import.meta.url).pathname }));
+  },
+};
+
 const artefacts = [
   { name: 'cli', entry: 'server/src/cli/main.ts' },
   { name: 'core', entry: 'server/src/core/index.ts' },
@@ -28,6 +39,12 @@ await Promise.all(
       external: a.external ?? [],
       metafile: true,
       logLevel: 'warning',
+      plugins: [noNetwork],
+      // Some ESM dependencies read import.meta.url; in a CommonJS bundle it comes from __filename.
+      ...(a.platform === 'browser' ? {} : {
+        define: { 'import.meta.url': '__pneumarkImportMetaUrl' },
+        banner: { js: "const __pneumarkImportMetaUrl = require('node:url').pathToFileURL(__filename).href;" },
+      }),
       ...(a.banner ? { banner: { js: a.banner } } : {}),
     });
     writeFileSync(`dist/meta/${a.name.replace('/', '-')}.json`, JSON.stringify(result.metafile));

@@ -5,17 +5,20 @@ import { mkdtempSync, writeFileSync, mkdirSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
+import { Writable } from 'node:stream';
 import { z } from 'zod';
-import { run, type Io } from '../../server/src/cli/main';
+import type { Io } from '../../server/src/cli/args';
+import { run } from '../../server/src/cli/main';
 
-function io(stdinText = '', env: NodeJS.ProcessEnv = { NO_COLOR: '1' }): Io & { out: () => string; err: () => string } {
+function io(stdinText = '', env: NodeJS.ProcessEnv = { NO_COLOR: '1' }, cwd = process.cwd()): Io & { out: () => string; err: () => string } {
   let out = '';
   let err = '';
+  const stderr = new Writable({ write(chunk: Buffer, _enc, done) { err += chunk.toString(); done(); } });
   return {
-    cwd: process.cwd(),
+    cwd,
     env,
     stdout: { write: (s: string) => { out += s; return true; }, isTTY: false },
-    stderr: { write: (s: string) => { err += s; return true; } },
+    stderr,
     stdin: () => Buffer.from(stdinText),
     out: () => out,
     err: () => err,
@@ -49,36 +52,36 @@ function tempDir(): string {
   return mkdtempSync(join(tmpdir(), 'pneumark-cli-'));
 }
 
-describe('pneumark check', () => {
-  it('exits 0 on clean notes and 1 when any finding is an error', () => {
+describe('pneumark check', async () => {
+  it('exits 0 on clean notes and 1 when any finding is an error', async () => {
     const clean = io();
-    expect(run(['check', 'samples/summit-hut-evacuation.pneu'], clean)).toBe(0);
+    expect(await run(['check', 'samples/summit-hut-evacuation.pneu'], clean)).toBe(0);
     expect(clean.out()).toMatch(/1 note checked: 0 errors/);
     const broken = io();
-    expect(run(['check', 'samples/broken-note.pneu'], broken)).toBe(1);
+    expect(await run(['check', 'samples/broken-note.pneu'], broken)).toBe(1);
     expect(broken.out()).toMatch(/samples\/broken-note\.pneu:4:1 {2}error {2}PN101 unknown-section/);
   });
 
-  it('exits 2 on usage errors', () => {
-    expect(run(['check'], io())).toBe(2);
-    expect(run(['check', '--format', 'xml', 'samples'], io())).toBe(2);
-    expect(run(['check', '--colour', 'samples'], io())).toBe(2);
-    expect(run(['frobnicate'], io())).toBe(2);
-    expect(run([], io())).toBe(2);
-    expect(run(['show'], io())).toBe(2);
+  it('exits 2 on usage errors', async () => {
+    expect(await run(['check'], io())).toBe(2);
+    expect(await run(['check', '--format', 'xml', 'samples'], io())).toBe(2);
+    expect(await run(['check', '--colour', 'samples'], io())).toBe(2);
+    expect(await run(['frobnicate'], io())).toBe(2);
+    expect(await run([], io())).toBe(2);
+    expect(await run(['show'], io())).toBe(2);
   });
 
-  it('checks every .pneu in a folder, in a stable order', () => {
+  it('checks every .pneu in a folder, in a stable order', async () => {
     const out = io();
-    run(['check', '--format', 'json', 'samples'], out);
+    await run(['check', '--format', 'json', 'samples'], out);
     const parsed = jsonShape.parse(JSON.parse(out.out()));
     expect(parsed.files.map((f) => f.path)).toEqual([...parsed.files.map((f) => f.path)].sort());
     expect(parsed.files.length).toBeGreaterThanOrEqual(4);
   });
 
-  it('writes JSON in the documented shape, with timepoints and values in force', () => {
+  it('writes JSON in the documented shape, with timepoints and values in force', async () => {
     const out = io();
-    expect(run(['check', '--format', 'json', 'samples/broken-note.pneu'], out)).toBe(1);
+    expect(await run(['check', '--format', 'json', 'samples/broken-note.pneu'], out)).toBe(1);
     const parsed = jsonShape.parse(JSON.parse(out.out()));
     const file = parsed.files[0]!;
     const first = file.findings[0]!;
@@ -87,47 +90,47 @@ describe('pneumark check', () => {
     expect(file.timepoints?.length).toBe(10);
   });
 
-  it('reports missing, binary and huge files in one line each, and goes on', () => {
+  it('reports missing, binary and huge files in one line each, and goes on', async () => {
     const dir = tempDir();
     writeFileSync(join(dir, 'binary.pneu'), Buffer.from([0x76, 0x00, 0x01, 0x02]));
     writeFileSync(join(dir, 'ok.pneu'), 'vitals hr 80\n');
     const out = io();
-    const code = run(['check', join(dir, 'binary.pneu'), join(dir, 'missing.pneu'), join(dir, 'ok.pneu')], out);
+    const code = await run(['check', join(dir, 'binary.pneu'), join(dir, 'missing.pneu'), join(dir, 'ok.pneu')], out);
     expect(code).toBe(2);
     expect(out.err()).toMatch(/binary.pneu: looks like a binary file/);
     expect(out.err()).toMatch(/missing.pneu: no such file or folder/);
     expect(out.out()).toMatch(/1 note checked, 2 could not be read/);
   });
 
-  it('reads a note from standard input with -', () => {
+  it('reads a note from standard input with -', async () => {
     const out = io('@ 08:00\nvitals spo2 104\n');
-    expect(run(['check', '-'], out)).toBe(1);
+    expect(await run(['check', '-'], out)).toBe(1);
     expect(out.out()).toMatch(/<stdin>:2:\d+ {2}error {2}PN306/);
   });
 
-  it('shows only errors with --quiet', () => {
+  it('shows only errors with --quiet', async () => {
     const out = io();
-    run(['check', '--quiet', 'samples/broken-note.pneu'], out);
+    await run(['check', '--quiet', 'samples/broken-note.pneu'], out);
     expect(out.out()).not.toMatch(/ {2}warning {2}/);
     expect(out.out()).toMatch(/error/);
   });
 });
 
-describe('pneumark show', () => {
-  it('prints each timepoint with normalised values, carried values and findings under their line', () => {
+describe('pneumark show', async () => {
+  it('prints each timepoint with normalised values, carried values and findings under their line', async () => {
     const out = io();
-    expect(run(['show', 'samples/home-oxygen-exacerbation.pneu'], out)).toBe(0);
+    expect(await run(['show', 'samples/home-oxygen-exacerbation.pneu'], out)).toBe(0);
     const text = out.out();
     expect(text).toMatch(/@ day 1 14:20 {2}emergency department/);
     expect(text).toMatch(/PaCO2 72 mmHg \(9\.6 kPa\)/);
     const broken = io();
-    run(['show', 'samples/broken-note.pneu'], broken);
+    await run(['show', 'samples/broken-note.pneu'], broken);
     expect(broken.out()).toMatch(/vitals {3}SpO2 104 % \(not used\)\n {6}✖ error PN306/);
   });
 
-  it('prints derived values, what is missing, and readings under each timepoint', () => {
+  it('prints derived values, what is missing, and readings under each timepoint', async () => {
     const out = io();
-    run(['show', 'samples/icu-ventilated-lung-injury.pneu'], out);
+    await run(['show', 'samples/icu-ventilated-lung-injury.pneu'], out);
     const text = out.out();
     expect(text).toMatch(/derived {2}.*P\/F 93 mmHg/);
     expect(text).toMatch(/ΔP 19 cmH2O/);
@@ -136,9 +139,9 @@ describe('pneumark show', () => {
     expect(text).toMatch(/reading {2}P\/F 93 with PEEP 8 cmH2O: consistent with the ≤ 100 oxygenation band/);
   });
 
-  it('puts derived values with formula, inputs and sources in the JSON', () => {
+  it('puts derived values with formula, inputs and sources in the JSON', async () => {
     const out = io();
-    run(['check', '--format', 'json', 'samples/icu-ventilated-lung-injury.pneu'], out);
+    await run(['check', '--format', 'json', 'samples/icu-ventilated-lung-injury.pneu'], out);
     const parsed = JSON.parse(out.out()) as { files: { timepoints: { derived: { id: string; substituted: string; inputs: { origin: { kind: string } }[]; source: string }[]; readings: { text: string }[] }[] }[] };
     const pf = parsed.files[0]!.timepoints[1]!.derived.find((d) => d.id === 'pf_ratio')!;
     expect(pf.substituted).toBe('88 ÷ 0.60 = 147 mmHg');
@@ -147,20 +150,20 @@ describe('pneumark show', () => {
     expect(parsed.files[0]!.timepoints[1]!.readings.length).toBeGreaterThan(0);
   });
 
-  it('uses colour on a terminal unless NO_COLOR is set', () => {
+  it('uses colour on a terminal unless NO_COLOR is set', async () => {
     const tty = io('', {});
     tty.stdout.isTTY = true;
-    run(['show', 'samples/summit-hut-evacuation.pneu'], tty);
+    await run(['show', 'samples/summit-hut-evacuation.pneu'], tty);
     expect(tty.out()).toContain('\u001b[');
     const noColour = io('', { NO_COLOR: '1' });
     noColour.stdout.isTTY = true;
-    run(['show', 'samples/summit-hut-evacuation.pneu'], noColour);
+    await run(['show', 'samples/summit-hut-evacuation.pneu'], noColour);
     expect(noColour.out()).not.toContain('\u001b[');
   });
 });
 
-describe('the built command', () => {
-  it('runs as a program, with exit codes for the shell', () => {
+describe('the built command', async () => {
+  it('runs as a program, with exit codes for the shell', async () => {
     const ok = spawnSync(process.execPath, ['dist/cli.js', 'check', 'samples/icu-ventilated-lung-injury.pneu'], { encoding: 'utf8' });
     expect(ok.status).toBe(0);
     const bad = spawnSync(process.execPath, ['dist/cli.js', 'check', '-'], { input: '@ 08:00\nabg ph 9.1\n', encoding: 'utf8' });

@@ -1,13 +1,18 @@
 /**
- * Finding and reading the notes a command was given: files, folders (every `.pneu` below
- * them, in a stable order) and `-` for standard input. Unreadable, binary or huge files give
- * a one-line problem and the run goes on.
+ * Finding and reading the notes a command was given: files, folders (every `.pneu` below them),
+ * glob patterns, and `-` for standard input; minus what `--exclude` patterns and a `.pneuignore`
+ * file in the working folder exclude (gitignore syntax). The list is sorted, so output order never
+ * depends on the file system or on parallelism. Unreadable, binary or huge files give a one-line
+ * problem and the run goes on.
  */
-import { readdirSync, readFileSync, statSync } from 'node:fs';
-import { join, relative } from 'node:path';
+import { existsSync, readFileSync, statSync } from 'node:fs';
+import { isAbsolute, join, relative, sep } from 'node:path';
+import ignore from 'ignore';
+import { globSync, isDynamicPattern } from 'tinyglobby';
 
 export const MAX_NOTE_BYTES = 20 * 1024 * 1024;
 export const NOTE_EXTENSION = '.pneu';
+export const IGNORE_FILE = '.pneuignore';
 
 export interface NoteInput {
   /** As shown to the user: relative to the working directory, or `<stdin>`. */
@@ -17,58 +22,89 @@ export interface NoteInput {
   readonly problem: string | null;
 }
 
-export function listInputs(paths: readonly string[], cwd: string): { files: string[]; problems: NoteInput[] } {
-  const files: string[] = [];
+export interface InputList {
+  /** Paths to read (relative to cwd where possible, forward slashes), or `-`. */
+  readonly files: string[];
+  readonly problems: NoteInput[];
+}
+
+const toPosix = (p: string) => p.split(sep).join('/');
+
+export function listInputs(args: readonly string[], cwd: string, exclude: readonly string[] = []): InputList {
   const problems: NoteInput[] = [];
-  for (const p of paths) {
-    if (p === '-') { files.push('-'); continue; }
-    const abs = join(cwd, p) === p ? p : p.startsWith('/') ? p : join(cwd, p);
+  const found = new Set<string>();
+  let stdin = false;
+  for (const arg of args) {
+    if (arg === '-') { stdin = true; continue; }
+    if (isDynamicPattern(arg)) {
+      const matches = globSync(arg, { cwd, onlyFiles: true, dot: false, ignore: ['**/node_modules/**'], expandDirectories: false });
+      if (matches.length === 0) problems.push({ path: arg, text: null, problem: 'no file matches this pattern' });
+      for (const m of matches) found.add(toPosix(m));
+      continue;
+    }
+    const abs = isAbsolute(arg) ? arg : join(cwd, arg);
     let stat;
     try {
       stat = statSync(abs);
     } catch {
-      problems.push({ path: p, text: null, problem: 'no such file or folder' });
+      problems.push({ path: arg, text: null, problem: 'no such file or folder' });
       continue;
     }
-    if (stat.isDirectory()) files.push(...walk(abs).map((f) => relative(cwd, f) || f));
-    else files.push(p);
+    if (stat.isDirectory()) {
+      const base = toPosix(relative(cwd, abs)) || '.';
+      for (const m of globSync(`**/*${NOTE_EXTENSION}`, { cwd: abs, onlyFiles: true, dot: false, ignore: ['**/node_modules/**'] })) {
+        found.add(base === '.' ? toPosix(m) : `${base}/${toPosix(m)}`);
+      }
+    } else {
+      found.add(isAbsolute(arg) ? toPosix(relative(cwd, abs)) || toPosix(abs) : toPosix(arg));
+    }
   }
+  const filter = exclusions(cwd, exclude);
+  const files = [...found].filter((f) => !filter(f)).sort(comparePaths);
+  if (stdin) files.push('-');
   return { files, problems };
 }
 
-function walk(dir: string): string[] {
-  const out: string[] = [];
-  let entries;
-  try {
-    entries = readdirSync(dir, { withFileTypes: true });
-  } catch {
-    return out;
+/** Byte-wise order of paths (the same on every machine and locale). */
+function comparePaths(a: string, b: string): number {
+  return a < b ? -1 : a > b ? 1 : 0;
+}
+
+/** A predicate that says whether a path (relative to cwd) is excluded. */
+function exclusions(cwd: string, exclude: readonly string[]): (path: string) => boolean {
+  const rules = ignore();
+  const file = join(cwd, IGNORE_FILE);
+  if (existsSync(file)) {
+    try {
+      rules.add(readFileSync(file, 'utf8'));
+    } catch {
+      // an unreadable ignore file excludes nothing
+    }
   }
-  entries.sort((a, b) => (a.name < b.name ? -1 : a.name > b.name ? 1 : 0));
-  for (const e of entries) {
-    if (e.name === 'node_modules' || e.name.startsWith('.')) continue;
-    const full = join(dir, e.name);
-    if (e.isDirectory()) out.push(...walk(full));
-    else if (e.isFile() && e.name.endsWith(NOTE_EXTENSION)) out.push(full);
-  }
-  return out;
+  rules.add([...exclude]);
+  return (path: string) => {
+    const rel = path.startsWith('../') || isAbsolute(path) ? null : path.replace(/^\.\//, '');
+    return rel !== null && rel !== '' && rules.ignores(rel);
+  };
 }
 
 export function readNote(path: string, cwd: string, stdin: () => Buffer): NoteInput {
   let bytes: Buffer;
+  const shown = path === '-' ? '<stdin>' : path;
   try {
     if (path === '-') bytes = stdin();
     else {
-      const abs = path.startsWith('/') ? path : join(cwd, path);
-      const size = statSync(abs).size;
-      if (size > MAX_NOTE_BYTES) return { path, text: null, problem: `too large to check (${(size / 1048576).toFixed(1)} MB; the limit is ${MAX_NOTE_BYTES / 1048576} MB)` };
+      const abs = isAbsolute(path) ? path : join(cwd, path);
+      const stat = statSync(abs);
+      if (stat.isDirectory()) return { path: shown, text: null, problem: 'is a folder' };
+      if (stat.size > MAX_NOTE_BYTES) return { path: shown, text: null, problem: `too large to check (${(stat.size / 1048576).toFixed(1)} MB; the limit is ${MAX_NOTE_BYTES / 1048576} MB)` };
       bytes = readFileSync(abs);
     }
   } catch (error) {
     const code = (error as NodeJS.ErrnoException).code;
-    return { path: path === '-' ? '<stdin>' : path, text: null, problem: code === 'EACCES' ? 'permission denied' : code === 'EISDIR' ? 'is a folder' : `cannot be read (${code ?? 'unknown error'})` };
+    const problem = code === 'EACCES' || code === 'EPERM' ? 'permission denied' : code === 'ENOENT' ? 'no such file or folder' : `cannot be read (${code ?? 'unknown error'})`;
+    return { path: shown, text: null, problem };
   }
-  const shown = path === '-' ? '<stdin>' : path;
   if (bytes.length > MAX_NOTE_BYTES) return { path: shown, text: null, problem: `too large to check (the limit is ${MAX_NOTE_BYTES / 1048576} MB)` };
   if (looksBinary(bytes)) return { path: shown, text: null, problem: 'looks like a binary file, not a note' };
   let text = bytes.toString('utf8');

@@ -1,140 +1,138 @@
 #!/usr/bin/env node
 /**
- * The `pneumark` command. It only translates between the terminal and the core:
- * options are validated with zod, notes are read, the core checks them, output is rendered.
- * Exit codes: 0 no errors, 1 findings at error level, 2 usage or input errors.
+ * The `pneumark` command. It only translates between the terminal and the core: options are
+ * validated with zod, notes are found and read, the core checks them (in parallel for large
+ * folders), and the results are rendered. Exit codes: 0 clean, 1 findings at error level (or
+ * more warnings than --max-warnings, or notes `fmt --check` would change), 2 usage or I/O error.
  */
 import { readFileSync, writeFileSync } from 'node:fs';
-import { parseArgs } from 'node:util';
+import { isMainThread, parentPort, workerData } from 'node:worker_threads';
 import { z } from 'zod';
 import { checkNote } from '../core/check-note';
+import { CAUTION, EXIT, HELP, parse, UsageError, validate, type Io } from './args';
 import { renderCheckDocs } from '../core/checks/docs';
 import { withGeneratedTables } from '../core/fields/docs';
-import { colourWanted, paint } from './colour';
+import { colourWanted, paint, type Paint } from './colour';
+import { runExport, exportRenderer } from './export-command';
+import { runFmt } from './fmt-command';
 import { listInputs, readNote } from './inputs';
-import { renderCheckJson, renderCheckText, type FileOutcome } from './render-check';
+import { gather } from './pool';
+import { renderCheckJson, renderCheckText, renderCheckSarif, type FileOutcome } from './render-check';
 import { renderShow } from './render-show';
-import { timepointsJson } from './timepoints-json';
+import { NoteWorker, type FileReport, type Task } from './work';
 
-export interface Io {
-  readonly cwd: string;
-  readonly env: NodeJS.ProcessEnv;
-  readonly stdout: { write(s: string): unknown; isTTY?: boolean };
-  readonly stderr: { write(s: string): unknown; isTTY?: boolean };
-  readonly stdin: () => Buffer;
-}
-
-const HELP = `pneumark — checks structured respiratory notes (.pneu)
-
-Usage:
-  pneumark show FILE                    the note as Pneumark reads it, with findings
-  pneumark check PATH... [options]      findings for files, folders (every .pneu inside) or - (stdin)
-  pneumark docs [--write FILE]          the documentation of every check, as Markdown
-
-Options for check:
-  --format text|json    output format (default text)
-  --quiet               only errors in text output
-Exit codes: 0 no errors, 1 findings at error level, 2 usage or input errors.
-
-Pneumark supports, never replaces, clinical judgement: defer to local protocols and licensed practice.`;
-
-const checkOptions = z.object({
-  format: z.enum(['text', 'json']).default('text'),
-  quiet: z.boolean().default(false),
-});
-
-export function run(argv: readonly string[], io: Io): number {
+export async function run(argv: readonly string[], io: Io): Promise<number> {
   const [command, ...rest] = argv;
-  const p = paint(colourWanted(io.stdout, io.env));
   try {
     switch (command) {
-      case 'show': return show(rest, io, p);
-      case 'check': return check(rest, io);
+      case 'show': return show(rest, io);
+      case 'check': return await check(rest, io);
+      case 'export': return await runExport(rest, io);
+      case 'fmt': return runFmt(rest, io);
       case 'docs': return docs(rest, io);
-      case undefined:
       case '-h':
       case '--help':
       case 'help':
-        io.stdout.write(`${HELP}\n`);
-        return command === undefined ? 2 : 0;
+        io.stdout.write(`${HELP.main}\n`);
+        return EXIT.ok;
+      case undefined:
+        io.stderr.write(`${HELP.main}\n`);
+        return EXIT.usage;
       default:
-        io.stderr.write(`pneumark: unknown command \`${command}\`\n\n${HELP}\n`);
-        return 2;
+        io.stderr.write(`pneumark: unknown command \`${command}\`; run \`pneumark --help\`\n`);
+        return EXIT.usage;
     }
   } catch (error) {
     if (error instanceof UsageError) {
-      io.stderr.write(`pneumark: ${error.message}\n`);
-      return 2;
+      io.stderr.write(`pneumark ${command ?? ''}: ${error.message}\n`);
+      return EXIT.usage;
     }
     throw error;
   }
 }
 
-class UsageError extends Error {}
-
-type OptionSpec = Record<string, { type: 'string' | 'boolean'; short?: string }>;
-
-/** Parses options strictly; what comes back is still validated with zod by each command. */
-function parse(args: readonly string[], options: OptionSpec): { positionals: string[]; values: Record<string, string | boolean | undefined> } {
-  try {
-    const parsed = parseArgs({ args: [...args], options: { help: { type: 'boolean', short: 'h' }, ...options }, allowPositionals: true, strict: true });
-    return { positionals: parsed.positionals, values: parsed.values as Record<string, string | boolean | undefined> };
-  } catch (error) {
-    throw new UsageError(error instanceof Error ? error.message : String(error));
-  }
-}
-
-function show(args: readonly string[], io: Io, p: ReturnType<typeof paint>): number {
+function show(args: readonly string[], io: Io): number {
   const { positionals, values } = parse(args, {});
-  if (values.help) { io.stdout.write('Usage: pneumark show FILE\n'); return 0; }
+  if (values.help) { io.stdout.write(`${HELP.show}\n`); return EXIT.ok; }
   if (positionals.length !== 1) throw new UsageError('show takes exactly one file (use `check` for several)');
   const note = readNote(positionals[0]!, io.cwd, io.stdin);
   if (note.text === null) {
     io.stderr.write(`pneumark: ${note.path}: ${note.problem}\n`);
-    return 2;
+    return EXIT.usage;
   }
-  const result = checkNote(note.text);
-  io.stdout.write(`${renderShow(note.path, result, p)}\n`);
-  return result.findings.some((f) => f.severity === 'error') ? 1 : 0;
+  const worker = new NoteWorker(io.cwd, {});
+  const result = checkNote(note.text, worker.settingsFor(positionals[0]!));
+  io.stdout.write(`${renderShow(note.path, result, paint(colourWanted(io.stdout, io.env)))}\n\n${CAUTION}\n`);
+  return result.findings.some((f) => f.severity === 'error') ? EXIT.findings : EXIT.ok;
 }
 
-function check(args: readonly string[], io: Io): number {
-  const { positionals, values } = parse(args, { format: { type: 'string' }, quiet: { type: 'boolean' } });
-  if (values.help) { io.stdout.write(`${HELP}\n`); return 0; }
-  const parsed = checkOptions.safeParse({ format: values.format, quiet: values.quiet });
-  if (!parsed.success) throw new UsageError(`invalid option: ${parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join('; ')}`);
-  if (positionals.length === 0) throw new UsageError('check needs at least one file, folder or - (stdin)');
-  const opts = parsed.data;
-  const { files, problems } = listInputs(positionals, io.cwd);
-  const outcomes: FileOutcome[] = problems.map((pr) => ({ path: pr.path, result: null, problem: pr.problem }));
-  for (const file of files) {
-    const note = readNote(file, io.cwd, io.stdin);
-    outcomes.push(note.text === null ? { path: note.path, result: null, problem: note.problem } : { path: note.path, result: checkNote(note.text), problem: null });
-  }
-  if (opts.format === 'json') io.stdout.write(`${renderCheckJson(outcomes, (o) => (o.result ? { timepoints: timepointsJson(o.result) } : {}))}\n`);
-  else io.stdout.write(`${renderCheckText(outcomes, paint(colourWanted(io.stdout, io.env)), opts.quiet)}\n`);
+const checkOptions = z.object({
+  format: z.enum(['text', 'json', 'sarif']).default('text'),
+  quiet: z.boolean().default(false),
+  maxWarnings: z.coerce.number().int().min(0).optional(),
+  exclude: z.array(z.string().min(1).max(500)).max(100).default([]),
+  progress: z.boolean().default(true),
+});
+
+async function check(args: readonly string[], io: Io): Promise<number> {
+  const { positionals, values } = parse(args, { format: { type: 'string' }, quiet: { type: 'boolean' }, 'max-warnings': { type: 'string' }, exclude: { type: 'string', multiple: true }, 'no-progress': { type: 'boolean' } });
+  if (values.help) { io.stdout.write(`${HELP.check}\n`); return EXIT.ok; }
+  const opts = validate(checkOptions, { format: values.format, quiet: values.quiet, maxWarnings: values['max-warnings'], exclude: values.exclude, progress: !values['no-progress'] });
+  if (positionals.length === 0) throw new UsageError('check needs at least one file, folder, pattern or - (stdin)');
+  const { files, problems } = listInputs(positionals, io.cwd, opts.exclude);
+  const worker = new NoteWorker(io.cwd, {});
+  const reports = await gather(files, { kind: 'check', timepoints: opts.format === 'json' }, io, worker, opts.progress, 'checking');
+  const outcomes: FileOutcome[] = [...problems.map((p) => ({ path: p.path, findings: [], problem: p.problem })), ...reports.map((r) => ({ path: r.path, findings: r.findings, problem: r.problem, ...(r.timepoints ? { timepoints: r.timepoints } : {}) }))];
+  const p: Paint = paint(colourWanted(io.stdout, io.env));
+  if (opts.format === 'json') io.stdout.write(`${renderCheckJson(outcomes)}\n`);
+  else if (opts.format === 'sarif') io.stdout.write(`${renderCheckSarif(outcomes, opts.quiet)}\n`);
+  else io.stdout.write(`${renderCheckText(outcomes, p, opts.quiet)}\n`);
   for (const o of outcomes) if (o.problem) io.stderr.write(`pneumark: ${o.path}: ${o.problem}\n`);
-  if (outcomes.some((o) => o.problem)) return 2;
-  if (outcomes.some((o) => o.result?.findings.some((f) => f.severity === 'error'))) return 1;
-  return 0;
+  if (outcomes.some((o) => o.problem)) return EXIT.usage;
+  if (outcomes.some((o) => o.findings.some((f) => f.severity === 'error'))) return EXIT.findings;
+  const warnings = outcomes.reduce((n, o) => n + o.findings.filter((f) => f.severity === 'warning').length, 0);
+  if (opts.maxWarnings !== undefined && warnings > opts.maxWarnings) {
+    io.stderr.write(`pneumark: ${warnings} warnings, more than --max-warnings ${opts.maxWarnings}\n`);
+    return EXIT.findings;
+  }
+  return EXIT.ok;
 }
 
 function docs(args: readonly string[], io: Io): number {
   const { values } = parse(args, { write: { type: 'string' }, grammar: { type: 'string' } });
+  if (values.help) { io.stdout.write(`${HELP.docs}\n`); return EXIT.ok; }
   const text = renderCheckDocs();
   if (typeof values.write === 'string') writeFileSync(values.write, text);
   else io.stdout.write(text);
   if (typeof values.grammar === 'string') writeFileSync(values.grammar, withGeneratedTables(readFileSync(values.grammar, 'utf8')));
-  return 0;
+  return EXIT.ok;
 }
 
-if (require.main === module) {
-  const code = run(process.argv.slice(2), {
+/** Worker thread: analyses the notes it is sent and posts each report back. */
+function workerMain(): void {
+  const data = workerData as { cwd: string; overrides: object; task: Task };
+  const worker = new NoteWorker(data.cwd, data.overrides, exportRenderer);
+  parentPort?.on('message', (m: { f: string; i: number }) => {
+    let report: FileReport;
+    try {
+      report = worker.run(m.f, data.task, () => Buffer.alloc(0));
+    } catch (error) {
+      report = { path: m.f, problem: `could not be analysed (${error instanceof Error ? error.message : String(error)})`, findings: [] };
+    }
+    parentPort?.postMessage({ i: m.i, report });
+  });
+}
+
+if (!isMainThread && (workerData as { pneumarkWorker?: boolean } | null)?.pneumarkWorker) {
+  workerMain();
+} else if (require.main === module) {
+  void run(process.argv.slice(2), {
     cwd: process.cwd(),
     env: process.env,
     stdout: process.stdout,
     stderr: process.stderr,
     stdin: () => readFileSync(0),
+  }).then((code) => {
+    process.exitCode = code;
   });
-  process.exitCode = code;
 }

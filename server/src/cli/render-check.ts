@@ -2,16 +2,19 @@
  * `pneumark check` output. Text: one line per finding, `path:line:col  severity  code  message`.
  * JSON: the stable shape documented in README.md ("JSON output"), version 1.
  */
-import type { NoteResult } from '../core/check-note';
 import { CHECKS } from '../core/checks/registry';
+import { toSarifLog } from '../core/export/sarif';
+import { PNEUMARK_VERSION } from '../core/version';
 import type { Finding } from '../core/types';
 import type { Paint } from './colour';
 import { countSeverities, type SeverityCounts } from './render-show';
 
 export interface FileOutcome {
   readonly path: string;
-  readonly result: NoteResult | null;
+  readonly findings: readonly Finding[];
   readonly problem: string | null;
+  /** Timepoints with values and derived values (JSON output only). */
+  readonly timepoints?: unknown[];
 }
 
 const aliasOf = new Map(CHECKS.map((c) => [c.code, c.alias]));
@@ -24,8 +27,8 @@ export function renderCheckText(outcomes: readonly FileOutcome[], p: Paint, quie
       lines.push(`${o.path}: ${p.red('cannot check')}: ${o.problem}`);
       continue;
     }
-    const findings = (o.result?.findings ?? []).filter((f) => !quiet || f.severity === 'error');
-    const c = countSeverities(o.result?.findings ?? []);
+    const findings = o.findings.filter((f) => !quiet || f.severity === 'error');
+    const c = countSeverities(o.findings);
     total.error += c.error;
     total.warning += c.warning;
     total.information += c.information;
@@ -73,10 +76,10 @@ export function toJsonFinding(f: Finding): JsonFinding {
   };
 }
 
-export function renderCheckJson(outcomes: readonly FileOutcome[], extra: (o: FileOutcome) => Record<string, unknown> = () => ({})): string {
+export function renderCheckJson(outcomes: readonly FileOutcome[]): string {
   const total: SeverityCounts = { error: 0, warning: 0, information: 0, hint: 0 };
   const files = outcomes.map((o) => {
-    const c = countSeverities(o.result?.findings ?? []);
+    const c = countSeverities(o.findings);
     total.error += c.error;
     total.warning += c.warning;
     total.information += c.information;
@@ -84,8 +87,8 @@ export function renderCheckJson(outcomes: readonly FileOutcome[], extra: (o: Fil
     return {
       path: o.path,
       problem: o.problem,
-      findings: (o.result?.findings ?? []).map(toJsonFinding),
-      ...extra(o),
+      findings: o.findings.map(toJsonFinding),
+      ...(o.timepoints ? { timepoints: o.timepoints } : {}),
     };
   });
   return JSON.stringify({
@@ -93,4 +96,10 @@ export function renderCheckJson(outcomes: readonly FileOutcome[], extra: (o: Fil
     files,
     summary: { files: outcomes.length, unreadable: outcomes.filter((o) => o.problem).length, errors: total.error, warnings: total.warning, information: total.information, hints: total.hint },
   }, null, 2);
+}
+
+/** SARIF 2.1.0, for code-scanning tools (rules come from the check registry). */
+export function renderCheckSarif(outcomes: readonly FileOutcome[], quiet: boolean): string {
+  const files = outcomes.map((o) => ({ path: o.path, findings: o.findings.filter((f) => !quiet || f.severity === 'error'), problem: o.problem }));
+  return JSON.stringify(toSarifLog(files, { toolVersion: PNEUMARK_VERSION }), null, 2);
 }

@@ -59,7 +59,11 @@ export function parseProjectConfig(text: string): ParsedConfig {
       }),
     };
   }
-  const { $schema: _schema, hints, ...settings } = parsed.data;
+  const { $schema: _schema, hints, ...validated } = parsed.data;
+  // Only the settings the file writes: the schema's defaults must not override the editor's settings.
+  const written = data as Record<string, unknown>;
+  const settings: Record<string, unknown> = {};
+  for (const [key, value] of Object.entries(validated)) if (Object.prototype.hasOwnProperty.call(written, key)) settings[key] = value;
   return { settings: settings as Partial<Settings>, hints: hints ?? {}, problems: [] };
 }
 

@@ -24,6 +24,11 @@ export const settingsSchema = z.object({
   hypocapniaBelowMmhg: z.number().min(15).max(40).default(35),
   /** Hüfner constant for oxygen content (mL O2 per g Hb). */
   hufnerConstant: z.union([z.literal(1.34), z.literal(1.36), z.literal(1.39)]).default(1.34),
+  /**
+   * Privacy checks (PN501–PN507): warn where free text looks like a person's identifiers (names,
+   * dates, phone, record numbers, e-mail, postal codes). `false` switches them all off.
+   */
+  privacyChecks: z.boolean().default(true),
   /** Checks switched off by code or alias. */
   disabledChecks: z.array(z.string().max(64)).max(200).default([]),
 });

@@ -37,7 +37,7 @@ import {
   type TrendsParams,
   type TrendsResult,
 } from '../protocol';
-import { ProjectConfigs } from './project-config';
+import { ProjectConfigs } from '../node/project-config';
 import { DEFAULT_CLIENT_SETTINGS, effectiveSettings, readClientSettings, settingsKey, type ClientSettings, type EffectiveSettings } from './settings';
 import { rangesOverlap, toCodeAction, toCompletionItem, toDiagnostic, toDocumentSymbol, toInlayHint } from './translate';
 

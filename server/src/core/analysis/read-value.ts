@@ -17,90 +17,97 @@ export interface ReadContext extends BoundsContext {
   readonly gasUnit: 'mmHg' | 'kPa';
 }
 
-export interface ReadResult {
-  readonly stated: StatedValue | null;
-  readonly issues: readonly ReadIssue[];
+/** A stated value with a fixed shape (one object literal, so reading stays cheap on large notes). */
+function statedValue(
+  field: FieldDef, section: SectionId, line: number, item: ItemNode,
+  value: number | null, parts: number[] | null, word: string | null, unit: string | null, readUnit: string | null,
+  unitImplied: boolean, unitDoubt: string | null, usable: boolean,
+): StatedValue {
+  return { fieldId: field.id, section, line, item, value, parts, word, unit, readUnit, unitImplied, unitDoubt, usable };
 }
 
-export function readItem(item: ItemNode, section: SectionId, line: number, ctx: ReadContext): ReadResult {
+/**
+ * Reads one item into a stated value in its field's canonical unit; problems met on the way are
+ * appended to `issues`. Returns null when there is nothing to state (unknown key, no value).
+ */
+export function readItem(item: ItemNode, section: SectionId, line: number, ctx: ReadContext, issues: ReadIssue[]): StatedValue | null {
   const field = fieldFor(section, item.keyName);
-  const issues: ReadIssue[] = [];
   if (!field) {
     if (item.key) issues.push(unknownKeyIssue(item, section, line));
-    return { stated: null, issues };
+    return null;
   }
-  if (!item.value) return { stated: null, issues };
-  const base = { fieldId: field.id, section, line, item };
+  const v = item.value;
+  if (!v) return null;
 
   if (field.kind === 'word') {
-    const text = item.value.text;
-    const word = canonicalWord(field, text);
+    const word = canonicalWord(field, v.text);
     if (word === null) {
-      const known = [...new Set(Object.values(field.words ?? {}))];
-      const near = closest(text, Object.keys(field.words ?? {}));
-      issues.push({
-        check: 'unknown-word',
-        line,
-        span: item.value.span,
-        message: `\`${text}\` is not a known value for ${field.label.toLowerCase()}; expected one of: ${known.join(', ')}.`,
-        fixes: near.map((w) => ({ title: `Change to \`${field.words?.[w] ?? w}\``, edits: [{ span: item.value!.span, newText: field.words?.[w] ?? w }] })),
-      });
-      return { stated: { ...base, value: null, parts: null, word: null, unit: null, readUnit: null, unitImplied: false, unitDoubt: null, usable: false }, issues };
+      issues.push(unknownWordIssue(item, field, line));
+      return statedValue(field, section, line, item, null, null, null, null, null, false, null, false);
     }
-    return { stated: { ...base, value: null, parts: null, word, unit: null, readUnit: null, unitImplied: false, unitDoubt: null, usable: true }, issues };
+    return statedValue(field, section, line, item, null, null, word, null, null, false, null, true);
   }
 
-  const numbers = item.value.kind === 'number' ? [item.value.value] : item.value.kind === 'pair' ? item.value.parts.map((p) => p.value) : null;
-  if (!numbers || (field.kind === 'pair') !== (item.value.kind === 'pair')) {
-    return { stated: null, issues: [] }; // shape problems are reported by the syntax checks
-  }
+  if ((field.kind === 'pair') !== (v.kind === 'pair') || v.kind === 'word') return null; // shape problems are reported by the syntax checks
   const canonical = field.unit ? unitById(field.unit) : undefined;
-  if (!canonical) return { stated: null, issues };
+  if (!canonical) return null;
+  const first = v.kind === 'number' ? v.value : (v.parts[0]?.value ?? 0);
 
   // Which unit was the number written in?
   let readUnit: UnitDef | undefined;
   let unitImplied = false;
   if (item.unit) {
     const candidates = unitsForSpelling(item.unit.text);
-    readUnit = candidates.find((u) => field.units?.includes(u.id));
+    for (const u of candidates) if (field.units?.includes(u.id)) { readUnit = u; break; }
     if (!readUnit) {
       issues.push(candidates.length === 0 ? unknownUnitIssue(item, field, line) : unitNotAllowedIssue(item, field, line, candidates));
-      return { stated: { ...base, value: null, parts: null, word: null, unit: canonical.id, readUnit: null, unitImplied: false, unitDoubt: null, usable: false }, issues };
+      return statedValue(field, section, line, item, null, null, null, canonical.id, null, false, null, false);
     }
   } else {
     unitImplied = true;
-    readUnit = bareUnit(field, numbers[0] ?? 0, ctx, canonical);
+    readUnit = bareUnit(field, first, ctx, canonical);
   }
 
-  const converted = numbers.map((n) => convert(n, readUnit, canonical));
-  if (converted.some((c) => c === null)) return { stated: null, issues };
-  const values = converted as number[];
+  let value: number | null = null;
+  let parts: number[] | null = null;
   // An impossible value feeds no calculation (the bounds checks report it).
-  let usable = !field.hard || values.every((v) => within(v, field.hard));
+  let usable = true;
+  if (v.kind === 'number') {
+    value = convert(v.value, readUnit, canonical);
+    if (value === null) return null;
+    if (field.hard && !within(value, field.hard)) usable = false;
+  } else {
+    parts = [];
+    for (const p of v.parts) {
+      const c = convert(p.value, readUnit, canonical);
+      if (c === null) return null;
+      if (field.hard && !within(c, field.hard)) usable = false;
+      parts.push(c);
+    }
+  }
 
   let unitDoubt: string | null = null;
-  if (unitImplied && item.value.kind === 'number') {
-    const likely = otherUnitLikely(field, values[0]!, item.value.value, readUnit, canonical, ctx);
+  if (unitImplied && value !== null && v.kind === 'number') {
+    const likely = otherUnitLikely(field, value, v.value, readUnit, canonical, ctx);
     if (likely) {
       usable = false;
       unitDoubt = likely.id;
       issues.push(otherUnitIssue(item, field, line, readUnit, likely, canonical));
     }
   }
+  return statedValue(field, section, line, item, value, parts, null, canonical.id, readUnit.id, unitImplied, unitDoubt, usable);
+}
 
+function unknownWordIssue(item: ItemNode, field: FieldDef, line: number): ReadIssue {
+  const value = item.value!;
+  const known = [...new Set(Object.values(field.words ?? {}))];
+  const near = closest(value.text, Object.keys(field.words ?? {}));
   return {
-    stated: {
-      ...base,
-      value: field.kind === 'number' ? values[0]! : null,
-      parts: field.kind === 'pair' ? values : null,
-      word: null,
-      unit: canonical.id,
-      readUnit: readUnit.id,
-      unitImplied,
-      unitDoubt,
-      usable,
-    },
-    issues,
+    check: 'unknown-word',
+    line,
+    span: value.span,
+    message: `\`${value.text}\` is not a known value for ${field.label.toLowerCase()}; expected one of: ${known.join(', ')}.`,
+    fixes: near.map((w) => ({ title: `Change to \`${field.words?.[w] ?? w}\``, edits: [{ span: value.span, newText: field.words?.[w] ?? w }] })),
   };
 }
 

@@ -210,10 +210,10 @@ function timeOf(node: TimepointLine, last: TimepointTime, isFirst: boolean): Tim
 function readLine(node: SectionLine, state: CarryState, settings: Settings, issues: ReadIssue[]): StatedValue[] {
   const gasUnit = (state.gasUnit?.stated.word as 'mmHg' | 'kPa' | undefined) ?? settings.gasUnit;
   const barometricMmhg = barometricInForce(state.place, settings);
+  const context = { gasUnit, barometricMmhg };
   const out: StatedValue[] = [];
   for (const item of node.items) {
-    const { stated, issues: found } = readItem(item, node.section, node.line, { gasUnit, barometricMmhg });
-    for (const f of found) issues.push(f);
+    const stated = readItem(item, node.section, node.line, context, issues);
     if (stated) out.push(stated);
   }
   return out;

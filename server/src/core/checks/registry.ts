@@ -14,6 +14,7 @@ import { internalError } from './internal';
 import { acidBaseReading, oxygenationReading, respiratoryFailureReading, ventilationReading } from './interpretations';
 import { drivingPressureHigh, plateauHigh, tidalVolumeHigh } from './ventilation-limits';
 import { peepAbovePlateau, plateauAbovePeak, systolicBelowDiastolic } from './pressure-order';
+import { birthDate, calendarDate, emailAddress, phoneNumber, possibleName, postalCode, recordNumber } from './privacy';
 import { timeGoesBack } from './time-order';
 import { fio2OutOfRange, impossibleValue, saturationAbove100, unusualValue } from './value-bounds';
 
@@ -47,6 +48,13 @@ export const CHECKS: readonly CheckDef[] = validateCheckList([
   ventilationReading,
   respiratoryFailureReading,
   acidBaseReading,
+  possibleName,
+  birthDate,
+  calendarDate,
+  phoneNumber,
+  emailAddress,
+  recordNumber,
+  postalCode,
   internalError,
 ]);
 

@@ -12,8 +12,17 @@ import type { DerivedCategory, DerivedValue, InputOrigin, MissingValue, NotAppli
 
 export type { Term } from './model';
 
+export interface ValueExtras {
+  readonly range?: { low: number; high: number } | undefined;
+  readonly notes?: readonly string[] | undefined;
+  readonly estimate?: boolean | undefined;
+  readonly formula?: string | undefined;
+}
+
+const NO_EXTRAS: ValueExtras = {};
+
 export type Outcome =
-  | { readonly kind: 'value'; readonly value: number; readonly terms: readonly Term[]; readonly range?: { low: number; high: number }; readonly notes?: readonly string[]; readonly estimate?: boolean; readonly formula?: string }
+  | ({ readonly kind: 'value'; readonly value: number; readonly terms: readonly Term[] } & ValueExtras)
   | { readonly kind: 'missing'; readonly needs: readonly string[] }
   | { readonly kind: 'na'; readonly reason: string };
 
@@ -35,8 +44,18 @@ export interface DerivedDef {
   readonly compute: (c: DeriveContext) => Outcome;
 }
 
-export function defineDerived(def: DerivedDef): DerivedDef {
-  return def;
+/** A definition with its formula already shown without braces (computed once, not per value). */
+export interface DerivedDefinition extends DerivedDef {
+  readonly shownFormula: string;
+}
+
+export function defineDerived(def: DerivedDef): DerivedDefinition {
+  return { ...def, shownFormula: shownFormula(def.formula) };
+}
+
+/** A formula template without its braces: `{PaO2} ÷ {FiO2}` → `PaO2 ÷ FiO2`. */
+function shownFormula(template: string): string {
+  return template.indexOf('{') < 0 ? template : template.split('{').join('').split('}').join('');
 }
 
 export class DeriveContext {
@@ -46,7 +65,7 @@ export class DeriveContext {
   constructor(
     readonly timepoint: Timepoint,
     readonly settings: Settings,
-    private readonly defs: ReadonlyMap<string, DerivedDef>,
+    private readonly defs: ReadonlyMap<string, DerivedDefinition>,
   ) {}
 
   /** A value computed once per timepoint and shared by several definitions (e.g. the acid–base classification). */
@@ -130,9 +149,11 @@ export class DeriveContext {
     return this.field('peep', 'PEEP') ?? this.field('epap', 'EPAP') ?? this.field('cpap_level', 'CPAP');
   }
 
-  value(value: number | null, terms: readonly (Term | null)[], extra: Partial<Extract<Outcome, { kind: 'value' }>> = {}): Outcome {
-    if (value === null || !Number.isFinite(value)) return { kind: 'na', reason: 'the inputs are outside the range where the formula holds' };
-    return { ...extra, kind: 'value', value, terms: terms.filter((t): t is Term => t !== null) };
+  value(value: number | null, terms: readonly (Term | null)[], extra: ValueExtras = NO_EXTRAS): Outcome {
+    if (value === null || !Number.isFinite(value)) return NOT_IN_DOMAIN;
+    const kept: Term[] = [];
+    for (const t of terms) if (t !== null) kept.push(t);
+    return { kind: 'value', value, terms: kept, range: extra.range, notes: extra.notes, estimate: extra.estimate, formula: extra.formula };
   }
 
   /** What to add to get another derived value (its own missing inputs), for messages. */
@@ -177,7 +198,11 @@ function usesCarried(terms: readonly Term[], c: DeriveContext): boolean {
   });
 }
 
-function evaluateDef(def: DerivedDef, c: DeriveContext): DerivedValue | MissingValue | NotApplicable | null {
+const NOT_IN_DOMAIN: Outcome = { kind: 'na', reason: 'the inputs are outside the range where the formula holds' };
+
+
+
+function evaluateDef(def: DerivedDefinition, c: DeriveContext): DerivedValue | MissingValue | NotApplicable | null {
   const line = anchorLine(def, c);
   let outcome: Outcome;
   try {
@@ -203,7 +228,7 @@ function evaluateDef(def: DerivedDef, c: DeriveContext): DerivedValue | MissingV
     unit: def.unit,
     decimals: def.decimals,
     range,
-    formula: formula.replace(/[{}]/g, ''),
+    formula: outcome.formula ? shownFormula(outcome.formula) : def.shownFormula,
     substituted: `${substitute(formula, outcome.terms)} = ${result}${def.unit ? ` ${def.unit}` : ''}`,
     inputs: outcome.terms,
     source: def.source,

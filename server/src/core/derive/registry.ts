@@ -7,14 +7,14 @@ import type { Timepoint } from '../analysis/model';
 import type { Settings } from '../settings';
 import * as acidBase from './acid-base';
 import * as atmosphere from './atmosphere';
-import { DeriveContext, type DerivedDef } from './context';
+import { DeriveContext, type DerivedDefinition } from './context';
 import * as gas from './gas-exchange';
 import { interpret } from './interpret';
 import * as mech from './mechanics';
 import type { DerivedValue, MissingValue, NotApplicable, TimepointDerivation } from './model';
 import * as transport from './oxygen-transport';
 
-export const DERIVED: readonly DerivedDef[] = validateDerived([
+export const DERIVED: readonly DerivedDefinition[] = validateDerived([
   atmosphere.barometric,
   atmosphere.pio2,
   transport.fio2Estimated,
@@ -49,7 +49,7 @@ export const DERIVED: readonly DerivedDef[] = validateDerived([
   transport.do2,
 ]);
 
-function validateDerived(list: readonly DerivedDef[]): readonly DerivedDef[] {
+function validateDerived(list: readonly DerivedDefinition[]): readonly DerivedDefinition[] {
   const ids = new Set<string>();
   for (const d of list) {
     if (!/^[a-z][a-z0-9]*(_[a-zA-Z0-9]+)*$/.test(d.id)) throw new Error(`derived id ${d.id} is not snake_case`);
@@ -60,14 +60,14 @@ function validateDerived(list: readonly DerivedDef[]): readonly DerivedDef[] {
   return list;
 }
 
-const byId: ReadonlyMap<string, DerivedDef> = new Map(DERIVED.map((d) => [d.id, d]));
+const byId: ReadonlyMap<string, DerivedDefinition> = new Map(DERIVED.map((d) => [d.id, d]));
 
-export function derivedDef(id: string): DerivedDef | undefined {
+export function derivedDef(id: string): DerivedDefinition | undefined {
   return byId.get(id);
 }
 
 /** Whether a definition is worth reporting at this timepoint (an anchor input is stated here). */
-function relevant(def: DerivedDef, tp: Timepoint): boolean {
+function relevant(def: DerivedDefinition, tp: Timepoint): boolean {
   return def.anchors.some((id) => tp.values.get(id)?.origin.kind === 'here');
 }
 

@@ -1,8 +1,9 @@
 /** Number formatting shared by messages, fixes and output. Never prints NaN or Infinity. */
 export function formatNumber(value: number, decimals: number): string {
   if (!Number.isFinite(value)) return '—';
-  const fixed = value.toFixed(Math.max(0, Math.min(6, decimals)));
-  return fixed === '-0' || /^-0\.0*$/.test(fixed) ? fixed.slice(1) : fixed;
+  const fixed = value.toFixed(decimals < 0 ? 0 : decimals > 6 ? 6 : decimals);
+  // A negative number that rounds to zero prints as 0, not -0.
+  return fixed.charCodeAt(0) === 45 && Number(fixed) === 0 ? fixed.slice(1) : fixed;
 }
 
 /** A number with as few decimals as it needs, up to `max` (29.5, 30, 0.21). */

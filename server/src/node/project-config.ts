@@ -1,6 +1,7 @@
 /**
  * Finds `pneumark.config.json` upward from a note's folder and reads it (cached by path and
- * modification time). Only `file:` notes have a project file.
+ * modification time). Shared by the language server (notes by URI; only `file:` notes have a
+ * project file) and the CLI (notes by path).
  */
 import { readFileSync, statSync } from 'node:fs';
 import { dirname, join } from 'node:path';
@@ -17,12 +18,18 @@ export class ProjectConfigs {
 
   forNote(uri: string): FoundConfig | null {
     if (!uri.startsWith('file:')) return null;
-    let dir: string;
+    let path: string;
     try {
-      dir = dirname(fileURLToPath(uri));
+      path = fileURLToPath(uri);
     } catch {
       return null;
     }
+    return this.forPath(path);
+  }
+
+  /** The project file for a note at a file-system path (absolute). */
+  forPath(notePath: string): FoundConfig | null {
+    let dir = dirname(notePath);
     for (let depth = 0; depth < 64; depth++) {
       const candidate = join(dir, CONFIG_FILE_NAME);
       const found = this.read(candidate);

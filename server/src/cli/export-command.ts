@@ -1,0 +1,62 @@
+/**
+ * `pneumark export`: one row per timepoint (CSV, JSON Lines) or one FHIR R4 Bundle per note.
+ * Each note is rendered where it was analysed (in a worker for large folders) and the pieces are
+ * written in the order of the notes, so the output never depends on the parallelism.
+ */
+import { z } from 'zod';
+import type { NoteResult } from '../core/check-note';
+import { csvHeader, csvRecord } from '../core/export/csv';
+import { exportColumns, timepointRows } from '../core/export/columns';
+import { anchorProblem, toFhirBundle } from '../core/export/fhir';
+import { toJsonl } from '../core/export/jsonl';
+import { EXIT, HELP, parse, UsageError, validate, type Io } from './args';
+import { listInputs } from './inputs';
+import { gather } from './pool';
+import { NoteWorker, type ExportRenderer } from './work';
+
+const exportOptions = z.object({
+  format: z.enum(['csv', 'jsonl', 'fhir'], { message: 'choose csv, jsonl or fhir' }),
+  redact: z.boolean().default(false),
+  shiftDays: z.coerce.number().int().min(-100000).max(100000).default(0),
+  anchor: z.string().max(64).nullable().default(null).refine((a) => a === null || anchorProblem(a) === null, { message: 'not an ISO 8601 date-time with a zone, e.g. 2026-01-05T00:00:00Z' }),
+  exclude: z.array(z.string().min(1).max(500)).max(100).default([]),
+  progress: z.boolean().default(true),
+});
+
+/** What one note contributes to the export (plain data, so it can come back from a worker). */
+export const exportRenderer: ExportRenderer = (path: string, result: NoteResult, task) => {
+  const options = { redactProse: task.redactProse, shiftDays: task.shiftDays };
+  if (task.format === 'csv') {
+    const columns = exportColumns();
+    return timepointRows(path, result, options).map((row) => csvRecord(columns, row)).join('');
+  }
+  if (task.format === 'jsonl') return toJsonl(path, result, options);
+  return toFhirBundle(path, result, { ...options, ...(task.anchor ? { anchor: task.anchor } : {}) });
+};
+
+export async function runExport(args: readonly string[], io: Io): Promise<number> {
+  const { positionals, values } = parse(args, {
+    format: { type: 'string' }, redact: { type: 'boolean' }, 'shift-days': { type: 'string' }, anchor: { type: 'string' },
+    exclude: { type: 'string', multiple: true }, 'no-progress': { type: 'boolean' },
+  });
+  if (values.help) { io.stdout.write(`${HELP.export}\n`); return EXIT.ok; }
+  const opts = validate(exportOptions, { format: values.format, redact: values.redact, shiftDays: values['shift-days'], anchor: values.anchor ?? null, exclude: values.exclude, progress: !values['no-progress'] });
+  if (opts.anchor && opts.format !== 'fhir') throw new UsageError('--anchor only applies to --format fhir');
+  if (positionals.length === 0) throw new UsageError('export needs at least one file, folder, pattern or - (stdin)');
+  const { files, problems } = listInputs(positionals, io.cwd, opts.exclude);
+  const task = { kind: 'export', format: opts.format, redactProse: opts.redact, shiftDays: opts.shiftDays, anchor: opts.anchor } as const;
+  const reports = await gather(files, task, io, new NoteWorker(io.cwd, {}, exportRenderer), opts.progress, 'exporting');
+
+  if (opts.format === 'csv') {
+    io.stdout.write(csvHeader(exportColumns()));
+    for (const r of reports) if (typeof r.payload === 'string') io.stdout.write(r.payload);
+  } else if (opts.format === 'jsonl') {
+    for (const r of reports) if (typeof r.payload === 'string' && r.payload.length > 0) io.stdout.write(r.payload.endsWith('\n') ? r.payload : `${r.payload}\n`);
+  } else {
+    const bundles = reports.filter((r) => r.payload).map((r) => JSON.stringify(r.payload, null, 2));
+    io.stdout.write(`[\n${bundles.join(',\n')}\n]\n`);
+  }
+  for (const p of [...problems, ...reports.filter((r) => r.problem)]) io.stderr.write(`pneumark: ${p.path}: ${p.problem}\n`);
+  if (problems.length > 0 || reports.some((r) => r.problem)) return EXIT.usage;
+  return reports.some((r) => r.findings.some((f) => f.severity === 'error')) ? EXIT.findings : EXIT.ok;
+}

@@ -1,0 +1,99 @@
+/**
+ * `pneumark fmt`: the editor's formatter over files. `--check` lists notes whose layout would
+ * change; `--write` rewrites them atomically and never over a note that has syntax errors (unless
+ * --force) or that changed on disk while being formatted.
+ */
+import { isAbsolute, join } from 'node:path';
+import { z } from 'zod';
+import { checkNote } from '../core/check-note';
+import { formatNote } from '../core/service/format';
+import { readSnapshot, writeIfUnchanged, type BeforeRename } from '../node/atomic-write';
+import { listInputs, looksBinary, MAX_NOTE_BYTES, readNote } from './inputs';
+import { EXIT, HELP, parse, UsageError, validate, type Io } from './args';
+
+const fmtOptions = z.object({
+  check: z.boolean().default(false),
+  write: z.boolean().default(false),
+  force: z.boolean().default(false),
+  exclude: z.array(z.string().min(1).max(500)).max(100).default([]),
+}).refine((o) => !(o.check && o.write), { message: 'use either --check or --write, not both', path: ['check'] });
+
+/** Test hook for the race and interruption tests. */
+export const fmtHooks: { beforeRename: BeforeRename | undefined } = { beforeRename: undefined };
+
+export function runFmt(args: readonly string[], io: Io): number {
+  const { positionals, values } = parse(args, { check: { type: 'boolean' }, write: { type: 'boolean' }, force: { type: 'boolean' }, exclude: { type: 'string', multiple: true } });
+  if (values.help) { io.stdout.write(`${HELP.fmt}\n`); return EXIT.ok; }
+  const opts = validate(fmtOptions, { check: values.check, write: values.write, force: values.force, exclude: values.exclude });
+  if (positionals.length === 0) throw new UsageError('fmt needs at least one file, folder, pattern or - (stdin)');
+  const { files, problems } = listInputs(positionals, io.cwd, opts.exclude);
+  for (const p of problems) io.stderr.write(`pneumark: ${p.path}: ${p.problem}\n`);
+
+  if (!opts.check && !opts.write) {
+    if (files.length !== 1 || problems.length > 0) throw new UsageError('without --check or --write, fmt prints one note: give exactly one file or -');
+    const note = readNote(files[0]!, io.cwd, io.stdin);
+    if (note.text === null) {
+      io.stderr.write(`pneumark: ${note.path}: ${note.problem}\n`);
+      return EXIT.usage;
+    }
+    io.stdout.write(formatNote(note.text));
+    return EXIT.ok;
+  }
+
+  let failed = problems.length > 0;
+  let changed = 0;
+  for (const file of files) {
+    if (file === '-') {
+      io.stderr.write('pneumark: fmt --check/--write works on files; use `pneumark fmt -` to print a formatted note\n');
+      failed = true;
+      continue;
+    }
+    const abs = isAbsolute(file) ? file : join(io.cwd, file);
+    let snapshot;
+    try {
+      snapshot = readSnapshot(abs);
+    } catch (error) {
+      io.stderr.write(`pneumark: ${file}: cannot be read (${(error as NodeJS.ErrnoException).code ?? 'error'})\n`);
+      failed = true;
+      continue;
+    }
+    if (snapshot.size > MAX_NOTE_BYTES || looksBinary(snapshot.bytes)) {
+      io.stderr.write(`pneumark: ${file}: ${snapshot.size > MAX_NOTE_BYTES ? 'too large to format' : 'looks like a binary file, not a note'}\n`);
+      failed = true;
+      continue;
+    }
+    const text = snapshot.text.charCodeAt(0) === 0xfeff ? snapshot.text.slice(1) : snapshot.text;
+    const formatted = formatNote(text);
+    if (formatted === text) continue;
+    changed++;
+    if (opts.check) {
+      io.stdout.write(`${file}\n`);
+      continue;
+    }
+    const syntaxErrors = checkNote(text).findings.filter((f) => f.severity === 'error' && /^PN1/.test(f.code));
+    if (syntaxErrors.length > 0 && !opts.force) {
+      io.stderr.write(`pneumark: ${file}: not rewritten: ${syntaxErrors.length} syntax error(s), first at line ${syntaxErrors[0]!.range.start.line + 1}; fix them or use --force\n`);
+      failed = true;
+      continue;
+    }
+    const bom = snapshot.text.charCodeAt(0) === 0xfeff ? '\uFEFF' : '';
+    try {
+      const outcome = writeIfUnchanged(abs, snapshot, bom + formatted, fmtHooks.beforeRename);
+      if (outcome === 'changed-on-disk') {
+        io.stderr.write(`pneumark: ${file}: changed on disk while being formatted; left as it is\n`);
+        failed = true;
+      } else {
+        io.stdout.write(`formatted ${file}\n`);
+      }
+    } catch (error) {
+      io.stderr.write(`pneumark: ${file}: could not be written (${error instanceof Error ? error.message : String(error)}); the original is intact\n`);
+      failed = true;
+    }
+  }
+  if (failed) return EXIT.usage;
+  if (opts.check && changed > 0) {
+    io.stderr.write(`${changed} note${changed === 1 ? '' : 's'} would be reformatted\n`);
+    return EXIT.findings;
+  }
+  return EXIT.ok;
+}

@@ -1,0 +1,88 @@
+/**
+ * Runs a task over many notes, in parallel when it pays off: worker threads each take the next
+ * note, and results land in the slot of their note, so the output order is the input order
+ * whatever the parallelism. Standard input is always read in the main thread.
+ */
+import { availableParallelism } from 'node:os';
+import { Worker } from 'node:worker_threads';
+import type { Settings } from '../core/settings';
+import type { Io } from './args';
+import { progressBar } from './progress';
+import type { FileReport, NoteWorker, Task } from './work';
+
+/** Below this many notes a single thread is faster than starting workers. */
+export const PARALLEL_FROM = 200;
+
+export interface PoolOptions {
+  readonly cwd: string;
+  readonly overrides: Partial<Settings>;
+  /** Worker count; 0 or 1 runs in this thread. */
+  readonly workers: number;
+  readonly onDone?: (done: number, total: number) => void;
+}
+
+export function workerCount(files: number, env: NodeJS.ProcessEnv): number {
+  const forced = env.PNEUMARK_WORKERS;
+  if (forced !== undefined && /^\d+$/.test(forced)) return Number(forced);
+  if (files < PARALLEL_FROM) return 0;
+  return Math.max(0, Math.min(4, availableParallelism()));
+}
+
+/** Workers need the bundled script (dist/cli.js); from sources (tests) everything runs here. */
+export function canUseWorkers(): boolean {
+  return typeof __filename === 'string' && __filename.endsWith('.js');
+}
+
+export async function runAll(files: readonly string[], task: Task, local: NoteWorker, stdin: () => Buffer, options: PoolOptions): Promise<FileReport[]> {
+  const reports: FileReport[] = new Array<FileReport>(files.length);
+  const total = files.length;
+  let done = 0;
+  const finish = (i: number, report: FileReport) => {
+    reports[i] = report;
+    done++;
+    options.onDone?.(done, total);
+  };
+  const parallel = options.workers > 1 && canUseWorkers();
+  if (!parallel) {
+    for (let i = 0; i < files.length; i++) {
+      finish(i, local.run(files[i]!, task, stdin));
+      if (i % 64 === 63) await new Promise((r) => setImmediate(r)); // let a progress bar draw
+    }
+    return reports;
+  }
+  const queue = files.map((f, i) => ({ f, i })).filter(({ f, i }) => {
+    if (f !== '-') return true;
+    finish(i, local.run(f, task, stdin));
+    return false;
+  });
+  let next = 0;
+  await Promise.all(Array.from({ length: Math.min(options.workers, queue.length) }, () => new Promise<void>((resolve, reject) => {
+    const worker = new Worker(__filename, { workerData: { pneumarkWorker: true, cwd: options.cwd, overrides: options.overrides, task } });
+    const feed = () => {
+      const item = queue[next++];
+      if (!item) {
+        void worker.terminate().then(() => resolve());
+        return;
+      }
+      worker.postMessage(item);
+    };
+    worker.on('message', (m: { i: number; report: FileReport }) => {
+      finish(m.i, m.report);
+      feed();
+    });
+    worker.on('error', reject);
+    worker.on('online', feed);
+  })));
+  return reports;
+}
+
+/** Reads notes for a command with a progress bar, in parallel when there are many. */
+export async function gather(files: readonly string[], task: Task, io: Io, worker: NoteWorker, showProgress: boolean, label: string): Promise<FileReport[]> {
+  const bar = progressBar(io.stderr, files.length, label, showProgress);
+  try {
+    return await runAll(files, task, worker, io.stdin, { cwd: io.cwd, overrides: {}, workers: workerCount(files.length, io.env), onDone: (d, t) => bar.update(d, t) });
+  } finally {
+    bar.stop();
+  }
+}
+

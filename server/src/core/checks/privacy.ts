@@ -1,0 +1,99 @@
+/**
+ * Privacy checks (PN5xx): what looks like a person's identifiers in the free text of a note
+ * (comments, note prose, timepoint labels, lines that are not sections, and free words and
+ * unread text on item lines). The format never needs them, and notes travel as teaching
+ * material and datasets. One check per kind of identifier, so each can be switched off alone;
+ * the setting `privacyChecks: false` switches them all off. The detectors live in ../privacy.
+ */
+import { scanLine } from '../privacy/free-text';
+import { PLACEHOLDERS, type PrivacyKind, type PrivacyMatch } from '../privacy/types';
+import { toRange, type LineNode } from '../syntax/tree';
+import type { Fix } from '../types';
+import { defineCheck, type CheckContext, type CheckDef, type CheckDoc } from './check';
+
+const SOURCE = 'de-identification practice (common practice, no source); HIPAA Safe Harbor list of identifiers, 45 CFR 164.514(b)(2) (from memory)';
+
+function placeholderFix(line: number, m: PrivacyMatch): Fix {
+  const placeholder = PLACEHOLDERS[m.kind];
+  return {
+    title: `Replace \`${m.text}\` with ${placeholder}`,
+    edits: [{ range: toRange(line, m.span), newText: placeholder }],
+  };
+}
+
+/**
+ * Each line is scanned once per check: a timepoint's lines in `runTimepoint` (so an editing
+ * session keeps the findings of unchanged timepoints), and the lines outside every timepoint
+ * (the header before the first `@`) in `run`.
+ */
+function privacyCheck(code: string, alias: string, kind: PrivacyKind, title: string, doc: CheckDoc, message: (m: PrivacyMatch) => string): CheckDef {
+  const reportLines = (ctx: CheckContext, lines: readonly LineNode[]) => {
+    for (const node of lines) {
+      for (const m of scanLine(node)) {
+        if (m.kind !== kind) continue;
+        ctx.report({ range: toRange(node.line, m.span), message: message(m), fixes: [placeholderFix(node.line, m)] });
+      }
+    }
+  };
+  return defineCheck({
+    code, alias, title, severity: 'warning', tags: ['privacy'], doc, source: SOURCE,
+    run(ctx) {
+      if (!ctx.settings.privacyChecks) return;
+      const lines = ctx.analysis.tree.lines;
+      const covered = new Array<boolean>(lines.length).fill(false);
+      for (const tp of ctx.analysis.timeline.timepoints) for (let l = tp.startLine; l <= tp.endLine && l < lines.length; l++) covered[l] = true;
+      reportLines(ctx, lines.filter((node) => !covered[node.line]));
+    },
+    runTimepoint(ctx) {
+      if (!ctx.settings.privacyChecks) return;
+      reportLines(ctx, ctx.analysis.tree.lines.slice(ctx.timepoint.startLine, ctx.timepoint.endLine + 1));
+    },
+  });
+}
+
+const OFF = 'The privacy checks can be switched off together with the setting `privacyChecks: false`, or one by one with `disabledChecks`.';
+const after = (m: PrivacyMatch) => (m.cue ? ` (after \`${m.cue}\`)` : '');
+
+export const possibleName = privacyCheck('PN501', 'possible-name', 'name', 'Possible person name', {
+  fires: 'Capitalised words follow a cue for a person: a title (`Mr`, `Mrs`, `Ms`, `Miss`, `Mx`, `Dr`, `Prof`), `name`, `named`, `known as`, a relative (`wife`, `son`, `next of kin` …), or, with two words at least, `patient`, `pt`, `called`, `seen by`, `discussed with`. Common capitalised words of clinical prose (`Dr review`, `Patient Settled`, `Glasgow`, `Outreach`) do not count.',
+  example: 'note      seen by Dr Patel; name: Jane Roe',
+  fix: `Remove the name or write a placeholder (\`[name]\`; the quick fix does it). A note needs no names: \`patient\` takes age, sex, height and weight only. ${OFF}`,
+}, (m) => `\`${m.text}\` looks like a person's name${after(m)}; a note needs none. Remove it or write [name].`);
+
+export const birthDate = privacyCheck('PN502', 'birth-date', 'birth-date', 'Date of birth', {
+  fires: 'A date (or a year) follows a birth cue: `DOB`, `D.O.B.`, `born`, `date of birth`, `birth date`. Two-digit years (`12/03/61`) count here.',
+  example: 'note      DOB 12/03/1961',
+  fix: `Remove it: the age on the \`patient\` line (\`patient age 64 y\`) is all a note needs. The quick fix writes \`[date of birth]\`. ${OFF}`,
+}, (m) => `\`${m.text}\` looks like a date of birth${after(m)}; write the age on the patient line instead (\`patient age 64 y\`).`);
+
+export const calendarDate = privacyCheck('PN503', 'calendar-date', 'calendar-date', 'Calendar date', {
+  fires: 'Free text holds a calendar date: `2026-03-04`, `2026-03-04T08:00`, `04/03/2026`, `4.3.2026`, `20260304`, `4 March 2026`, `March 4, 2026`, `4th of March`, `Mar 2026`. Numeric dates need a four-digit year from 1900 to 2099, so gases (`7.28/56/71`), pressures (`120/80`) and fractions (`3/7`) never count.',
+  example: '@ day 2 08:00  seen in clinic on 4 March 2026',
+  fix: `Write times relative to the note (\`@ day 2 08:00\`, \`@ +2h30\`): they keep dates of care out of shared notes. The quick fix writes \`[date]\`. ${OFF}`,
+}, (m) => `\`${m.text}\` is a calendar date; write a relative day instead (\`@ day 2 08:00\`), which keeps dates of care out of shared notes.`);
+
+export const phoneNumber = privacyCheck('PN504', 'phone-number', 'phone', 'Phone number', {
+  fires: 'Digits in a phone shape: international (`+44 20 7946 0958`), an area code in parentheses (`(555) 010-1234`), a national number of 10 or 11 digits with a leading 0 (`020 7946 0958`, `07700 900123`, `07700900123`), 3-3-4 groups with hyphens or dots (`555-010-1234`), or 7 to 15 digits after `tel`, `phone`, `mobile`, `contact`, `fax`. Numbers followed by a unit (`250 500 1000 mL`) are quantities and never count without a cue.',
+  example: 'note      daughter on 07700 900123',
+  fix: `Remove it or write \`[phone]\` (the quick fix does it). ${OFF}`,
+}, (m) => `\`${m.text}\` looks like a phone number${after(m)}; remove it or write [phone].`);
+
+export const emailAddress = privacyCheck('PN505', 'email-address', 'email', 'E-mail address', {
+  fires: 'Free text holds an e-mail address (`name@domain.tld`).',
+  example: 'note      results to jane.roe@example.org',
+  fix: `Remove it or write \`[email]\` (the quick fix does it). ${OFF}`,
+}, (m) => `\`${m.text}\` is an e-mail address; remove it or write [email].`);
+
+export const recordNumber = privacyCheck('PN506', 'record-number', 'record-number', 'Record or identity number', {
+  fires: 'A record-number-like identifier: 5 digits or more after `MRN`, `NHS`, `hospital number`, `ID`, `SSN`, `medicare` and similar cues; without a cue, 7 digits or more in one run (`1234567`, not round quantities like `1000000`), 1 to 3 capitals and 6 digits (`AB123456`), a 10-digit NHS number with a valid check digit (`943 476 5919`), or a social security shape (`123-45-6789`).',
+  example: 'note      MRN 1234567',
+  fix: `Remove it or write \`[id]\` (the quick fix does it). Link notes to records outside the note, never inside it. ${OFF}`,
+}, (m) => `\`${m.text}\` looks like a record or identity number${after(m)}; remove it or write [id].`);
+
+export const postalCode = privacyCheck('PN507', 'postal-code', 'postal-code', 'Postal code', {
+  fires: 'A postal code in a shape clinical text does not produce: a UK postcode in capitals (`SW1A 1AA`), a US ZIP+4 (`12345-6789`), a 5-digit ZIP after a comma and a state (`Springfield, IL 62704`), or after `postcode`, `zip` or `address` a UK, Canadian or US code in any case.',
+  example: 'note      lives near SW1A 1AA',
+  fix: `Remove it or write \`[postcode]\` (the quick fix does it). Where altitude matters, the \`place\` line takes it (\`place altitude 1650 m\`). ${OFF}`,
+}, (m) => `\`${m.text}\` looks like a postal code${after(m)}; remove it or write [postcode].`);
+
+export const PRIVACY_CHECKS: readonly CheckDef[] = [possibleName, birthDate, calendarDate, phoneNumber, emailAddress, recordNumber, postalCode];

@@ -1,0 +1,336 @@
+/**
+ * The column model of the tabular exports (CSV, JSON Lines): one row per timepoint, one column
+ * per value. The list comes from the registries, so a new field or derived value adds a column;
+ * `tests/export/columns.test.ts` pins the full list so that every change shows in review.
+ *
+ * The columns, in order:
+ *   file, timepoint (0-based index), label, day, minutes (since day 1 00:00), offset_minutes
+ *     (since the first timepoint whose time is known);
+ *   every field of FIELDS in registry order: a number as `<fieldId>_<unitSlug>` in the field's
+ *     canonical unit (`pao2_mmHg`, `fio2_fraction`, `spo2_pct`), blood pressure as
+ *     `bp_systolic_mmHg` and `bp_diastolic_mmHg`, a word as the bare field id (`device`, `mode`);
+ *   every derived value of DERIVED in order as `<id>_<unitSlug>`, bare when the id ends in `_ratio`
+ *     or `_index` or the value has no unit (`pf_ratio`, `rox_index`, `fio2_estimated`), as
+ *     `<id>_low_<unitSlug>` and `<id>_high_<unitSlug>` for an expected range, and with `_derived`
+ *     after the id when a field has the same id (`barometric_derived_mmHg`);
+ *   carried_fields, findings_errors, findings_warnings, findings_information.
+ *
+ * Cells:
+ * - Field values are those in force at the timepoint: stated there, carried from an earlier
+ *   timepoint (settings) or from the header (patient, place, units), in the canonical unit at
+ *   full precision (a gas written in kPa appears in mmHg, unrounded). A value Pneumark does not
+ *   use in calculations (impossible, or in a doubtful unit: see its finding) is left empty.
+ * - `gas_unit` is the unit bare gas pressures were read in at the timepoint: the note's
+ *   `units gas` in force, else the gasUnit setting (so it is never empty).
+ * - Derived values appear at the timepoints where Pneumark reports them, that is where one of
+ *   their main inputs was stated (see grammar/README.md, "Derived values").
+ * - Numbers are never NaN or infinite: such a value is left empty (null).
+ * - carried_fields lists, `;`-joined in registry order, the fields whose cell in this row holds
+ *   a value carried from an earlier timepoint (header values are not "carried").
+ * - The findings counts cover the findings that start on this timepoint's lines (from its `@`
+ *   line to the line before the next timepoint); findings on header lines belong to no row.
+ *
+ * - label is the text written after the timepoint's time, empty when there is none.
+ *
+ * Options:
+ * - redactProse: the label column is left empty (labels are free text and may hold identifiers).
+ * - shiftDays: N days are added to `day` and N × 1440 to `minutes`, so a shared dataset need not
+ *   keep the note's real day numbers; `offset_minutes` is unchanged. N must be a whole number.
+ */
+import type { NoteResult } from '../check-note';
+import type { InputValue, StatedValue, Timepoint } from '../analysis/model';
+import type { DerivedValue } from '../derive/model';
+import { DERIVED } from '../derive/registry';
+import { FIELDS, type FieldDef } from '../fields/registry';
+import type { Finding } from '../types';
+import { ucumCode, unitForPeople, unitSlug } from './units';
+
+export type ColumnKind = 'timepoint' | 'field' | 'derived' | 'summary';
+
+export interface ColumnDef {
+  readonly name: string;
+  readonly description: string;
+  /** The unit as written for people (`mmHg`, `%`, `L/min`); null for words, counts and pure numbers. */
+  readonly unit: string | null;
+  /** The UCUM code of the unit (`mm[Hg]`, `%`, `1` for a pure number); null for words and text. */
+  readonly ucum: string | null;
+  readonly type: 'number' | 'string';
+  readonly kind: ColumnKind;
+  /** The field id or derived-value id the column comes from; null for timepoint and summary columns. */
+  readonly source: string | null;
+  /** Which part of the source: the two numbers of blood pressure, the two ends of an expected range. */
+  readonly part: 'systolic' | 'diastolic' | 'low' | 'high' | null;
+}
+
+export type Cell = string | number | null;
+export type Row = Record<string, Cell>;
+
+export interface ExportOptions {
+  /** Leave out free text written in the note (timepoint labels). */
+  readonly redactProse: boolean;
+  /** Whole days added to every day number (and N × 1440 to minutes since day 1 00:00). */
+  readonly shiftDays: number;
+}
+
+/** Derived values that are expected ranges: exported as their two ends, not their centre. */
+export const RANGE_DERIVED_IDS: ReadonlySet<string> = new Set(['paco2_expected', 'hco3_expected_acute', 'hco3_expected_chronic']);
+
+interface RowContext {
+  readonly path: string;
+  readonly timepoint: Timepoint;
+  readonly derived: ReadonlyMap<string, DerivedValue>;
+  readonly findings: readonly Finding[];
+  /** Minutes of the first timepoint with a known time. */
+  readonly firstMinutes: number | null;
+  /** The unit bare gas pressures were read in at this timepoint. */
+  readonly gasUnit: string;
+  readonly label: string | null;
+  readonly options: ExportOptions;
+}
+
+interface Column extends ColumnDef {
+  readonly cell: (c: RowContext) => Cell;
+}
+
+const MINUTES_PER_DAY = 1440;
+
+const finite = (value: number | null | undefined): number | null => (value !== null && value !== undefined && Number.isFinite(value) ? value : null);
+
+function timepointColumns(): Column[] {
+  const meta = (name: string, type: ColumnDef['type'], unit: 'min' | null, description: string, cell: Column['cell']): Column =>
+    ({ name, description, unit, ucum: unit, type, kind: 'timepoint', source: null, part: null, cell });
+  return [
+    meta('file', 'string', null, 'Path of the note, as given to the exporter.', (c) => c.path),
+    meta('timepoint', 'number', null, 'Index of the timepoint in the note, from 0.', (c) => c.timepoint.index),
+    meta('label', 'string', null, 'Label written after the timepoint\'s time; empty when none is written, and with redactProse.', (c) => (c.options.redactProse ? null : c.label)),
+    meta('day', 'number', null, 'Day number of the timepoint (day 1 is the first day), plus shiftDays.', (c) => {
+      const day = finite(c.timepoint.time.day);
+      return day === null ? null : day + c.options.shiftDays;
+    }),
+    meta('minutes', 'number', 'min', 'Minutes since 00:00 of day 1, plus shiftDays × 1440; empty when the time is unknown.', (c) => {
+      const minutes = finite(c.timepoint.time.minutes);
+      return minutes === null ? null : minutes + c.options.shiftDays * MINUTES_PER_DAY;
+    }),
+    meta('offset_minutes', 'number', 'min', 'Minutes since the first timepoint whose time is known; empty when this time is unknown.', (c) => {
+      const minutes = finite(c.timepoint.time.minutes);
+      return minutes === null || c.firstMinutes === null ? null : minutes - c.firstMinutes;
+    }),
+  ];
+}
+
+/** The value of a field in force at the timepoint, or null when absent or not usable. */
+function inForce(c: RowContext, fieldId: string): InputValue | null {
+  const input = c.timepoint.values.get(fieldId);
+  return input && input.stated.usable ? input : null;
+}
+
+const GAS_UNIT = 'gas_unit';
+
+/** The gas unit in force at each timepoint: the last `units gas` of the header or an earlier timepoint, else the setting. */
+function gasUnits(result: NoteResult): string[] {
+  const word = (stated: readonly StatedValue[]): string | null => {
+    let found: string | null = null;
+    for (const s of stated) if (s.fieldId === GAS_UNIT && s.word !== null) found = s.word;
+    return found;
+  };
+  let unit = word(result.analysis.timeline.header) ?? result.settings.gasUnit;
+  return result.analysis.timeline.timepoints.map((tp) => {
+    unit = word(tp.stated) ?? unit;
+    return unit;
+  });
+}
+
+function fieldColumns(field: FieldDef): Column[] {
+  const base = { kind: 'field' as const, source: field.id };
+  if (field.id === GAS_UNIT) {
+    // The timeline keeps the gas unit apart from the values in force: it is how bare numbers are read.
+    return [{ ...base, name: field.id, description: `${field.label}: ${field.description} The note's \`units gas\` in force, else the gasUnit setting.`, unit: null, ucum: null, type: 'string', part: null, cell: (c) => c.gasUnit }];
+  }
+  if (field.kind === 'word') {
+    return [{ ...base, name: field.id, description: `${field.label}: ${field.description}`, unit: null, ucum: null, type: 'string', part: null, cell: (c) => inForce(c, field.id)?.stated.word ?? null }];
+  }
+  const unitId = field.unit ?? '';
+  const unit = unitForPeople(unitId);
+  const ucum = ucumCode(unitId);
+  const slug = unitSlug(unitId);
+  if (field.kind === 'pair') {
+    const part = (which: 'systolic' | 'diastolic', index: number): Column => ({
+      ...base,
+      name: `${field.id}_${which}_${slug}`,
+      description: `${field.label}, ${which}: ${field.description}`,
+      unit,
+      ucum,
+      type: 'number',
+      part: which,
+      cell: (c) => finite(inForce(c, field.id)?.stated.parts?.[index]),
+    });
+    return [part('systolic', 0), part('diastolic', 1)];
+  }
+  return [{
+    ...base,
+    name: slug ? `${field.id}_${slug}` : field.id,
+    description: `${field.label}: ${field.description}`,
+    unit,
+    ucum,
+    type: 'number',
+    part: null,
+    cell: (c) => finite(inForce(c, field.id)?.stated.value),
+  }];
+}
+
+function derivedColumns(def: (typeof DERIVED)[number], fieldIds: ReadonlySet<string>): Column[] {
+  const id = fieldIds.has(def.id) ? `${def.id}_derived` : def.id;
+  const slug = unitSlug(def.unit);
+  const base = { kind: 'derived' as const, source: def.id, unit: unitForPeople(def.unit), ucum: ucumCode(def.unit), type: 'number' as const };
+  if (RANGE_DERIVED_IDS.has(def.id)) {
+    const end = (which: 'low' | 'high'): Column => ({
+      ...base,
+      name: `${id}_${which}${slug ? `_${slug}` : ''}`,
+      description: `${def.label}, ${which === 'low' ? 'lower' : 'upper'} end of the range.`,
+      part: which,
+      cell: (c) => {
+        const range = c.derived.get(def.id)?.range;
+        return range ? finite(range[which]) : null;
+      },
+    });
+    return [end('low'), end('high')];
+  }
+  const bare = /_(ratio|index)$/.test(def.id) || !slug;
+  return [{
+    ...base,
+    name: bare ? id : `${id}_${slug}`,
+    description: `${def.label} (${def.short}), derived: ${def.formula}.`,
+    part: null,
+    cell: (c) => finite(c.derived.get(def.id)?.value),
+  }];
+}
+
+function summaryColumns(): Column[] {
+  const count = (name: string, severity: Finding['severity'], words: string): Column => ({
+    name,
+    description: `Number of ${words} on this timepoint's lines.`,
+    unit: null,
+    ucum: null,
+    type: 'number',
+    kind: 'summary',
+    source: null,
+    part: null,
+    cell: (c) => c.findings.filter((f) => f.severity === severity).length,
+  });
+  return [
+    {
+      name: 'carried_fields',
+      description: 'Ids of the fields whose value in this row was carried from an earlier timepoint, `;`-joined.',
+      unit: null,
+      ucum: null,
+      type: 'string',
+      kind: 'summary',
+      source: null,
+      part: null,
+      cell: (c) => FIELDS.filter((f) => {
+        const input = inForce(c, f.id);
+        return input !== null && input.origin.kind === 'carried' && (input.stated.value !== null || input.stated.parts !== null || input.stated.word !== null);
+      }).map((f) => f.id).join(';'),
+    },
+    count('findings_errors', 'error', 'error findings'),
+    count('findings_warnings', 'warning', 'warning findings'),
+    count('findings_information', 'information', 'information findings'),
+  ];
+}
+
+function buildColumns(): readonly Column[] {
+  const fieldIds = new Set(FIELDS.map((f) => f.id));
+  const columns = [
+    ...timepointColumns(),
+    ...FIELDS.flatMap(fieldColumns),
+    ...DERIVED.flatMap((d) => derivedColumns(d, fieldIds)),
+    ...summaryColumns(),
+  ];
+  const names = new Set<string>();
+  for (const c of columns) {
+    if (names.has(c.name)) throw new Error(`export column ${c.name} is defined twice`);
+    names.add(c.name);
+  }
+  return columns;
+}
+
+const COLUMNS: readonly Column[] = buildColumns();
+const COLUMN_DEFS: readonly ColumnDef[] = Object.freeze(COLUMNS.map(({ cell: _cell, ...def }) => Object.freeze(def)));
+
+/** The columns of the tabular exports, in order. */
+export function exportColumns(): readonly ColumnDef[] {
+  return COLUMN_DEFS;
+}
+
+/** Throws a RangeError for options no export accepts (the CLI validates them first). */
+export function assertExportOptions(options: ExportOptions): void {
+  if (!Number.isSafeInteger(options.shiftDays)) throw new RangeError(`shiftDays must be a whole number of days, not ${options.shiftDays}`);
+}
+
+/** Findings that start on a timepoint's lines, in the order of the result. */
+export function findingsOfTimepoint(result: NoteResult, timepoint: Timepoint): Finding[] {
+  return result.findings.filter((f) => f.range.start.line >= timepoint.startLine && f.range.start.line <= timepoint.endLine);
+}
+
+/**
+ * The findings of every timepoint at once (index = timepoint index), in one pass over the
+ * findings: timepoints are in line order, so each finding's timepoint is found by bisection.
+ */
+export function findingsByTimepoint(result: NoteResult): Finding[][] {
+  const timepoints = result.analysis.timeline.timepoints;
+  const out: Finding[][] = timepoints.map(() => []);
+  for (const f of result.findings) {
+    const line = f.range.start.line;
+    let lo = 0;
+    let hi = timepoints.length - 1;
+    let found = -1;
+    while (lo <= hi) {
+      const mid = (lo + hi) >> 1;
+      const tp = timepoints[mid];
+      if (!tp) break;
+      if (line < tp.startLine) hi = mid - 1;
+      else if (line > tp.endLine) lo = mid + 1;
+      else {
+        found = mid;
+        break;
+      }
+    }
+    if (found >= 0) out[found]?.push(f);
+  }
+  return out;
+}
+
+/**
+ * The label written after a timepoint's time, or null. (The timeline names an unlabelled
+ * timepoint by its time, `+5m`, and the implicit first one `start`; those are not labels.)
+ */
+export function writtenLabel(result: NoteResult, timepoint: Timepoint): string | null {
+  if (timepoint.line === null) return null;
+  const lines = result.analysis.tree.lines;
+  const node = lines[timepoint.line]?.line === timepoint.line ? lines[timepoint.line] : lines.find((l) => l.line === timepoint.line);
+  return node?.kind === 'timepoint' && node.label ? node.label.text : null;
+}
+
+/** Minutes of the first timepoint whose time is known. */
+export function firstKnownMinutes(result: NoteResult): number | null {
+  for (const tp of result.analysis.timeline.timepoints) {
+    const minutes = finite(tp.time.minutes);
+    if (minutes !== null) return minutes;
+  }
+  return null;
+}
+
+/** One row per timepoint of the note, keyed by column name (every column present, null when empty). */
+export function timepointRows(path: string, result: NoteResult, options: ExportOptions): Row[] {
+  assertExportOptions(options);
+  const firstMinutes = firstKnownMinutes(result);
+  const gasUnitAt = gasUnits(result);
+  const findingsAt = findingsByTimepoint(result);
+  return result.analysis.timeline.timepoints.map((timepoint, i) => {
+    const derived = new Map((result.analysis.derivations[timepoint.index]?.derived ?? []).map((d) => [d.id, d]));
+    const context: RowContext = { path, timepoint, derived, findings: findingsAt[i] ?? [], firstMinutes, gasUnit: gasUnitAt[i] ?? result.settings.gasUnit, label: writtenLabel(result, timepoint), options };
+    const row: Row = {};
+    for (const column of COLUMNS) row[column.name] = column.cell(context);
+    return row;
+  });
+}

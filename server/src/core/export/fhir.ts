@@ -1,0 +1,327 @@
+/**
+ * FHIR R4 export: one `Bundle` of type `collection` per note, holding one `Observation` per value
+ * the note states that has a LOINC code in the field registry.
+ *
+ * What becomes an Observation:
+ * - each value stated at a timepoint (`here`; carried values are not repeated: the Observation of
+ *   the timepoint that stated them stands), usable, with a LOINC code;
+ * - each header value (patient line before the first timepoint) with a LOINC code, once per note
+ *   and without a time: age, height, weight describe the patient for the whole note;
+ * - of the derived values, only those LOINC has a code for: the P/F ratio (Horowitz index,
+ *   50984-4, value in mmHg), with `derivedFrom` pointing at the PaO2 and FiO2 Observations it
+ *   used (at this timepoint or, for a carried FiO2, the one that stated it);
+ * - blood pressure as one Observation with the panel code of the registry and two components.
+ *
+ * Every Observation has `status: final`, `code` (LOINC coding and our label as text) and a
+ * `valueQuantity` in the field's canonical unit, full precision, with the UCUM code of the unit
+ * registry. There is no subject, performer or identifier: notes carry none.
+ *
+ * Categories (http://terminology.hl7.org/CodeSystem/observation-category), by the field's first
+ * section: vitals → vital-signs; abg, vbg and labs → laboratory (and the P/F ratio, a blood-gas
+ * index); oxygen and vent → therapy (FiO2, oxygen flow, tidal volume and PEEP are settings of the
+ * treatment, not measurements of the patient); patient → vital-signs for height and weight (both
+ * belong to FHIR's vital-signs set), no category for age.
+ *
+ * Time: notes hold relative days only. With `anchor` (an ISO 8601 date-time with seconds optional
+ * and a zone, `Z` or `±hh:mm`, meaning 00:00 of day 1), `effectiveDateTime` is the anchor plus
+ * the timepoint's minutes plus shiftDays × 1440 minutes, written with the anchor's own offset.
+ * Without an anchor no effective time is written, since a relative time is not a FHIR dateTime;
+ * each Observation then says in `note` which timepoint (and relative day and clock time) it
+ * belongs to. With redactProse that note leaves out the timepoint's label.
+ *
+ * Ids: a resource's `id` is `obs-<timepoint>-<field>` (`obs-header-<field>` for header values;
+ * `_` becomes `-`, which FHIR ids do not allow); its `fullUrl` is `urn:uuid:` with a UUID-shaped
+ * id derived from the file, the timepoint and the field (stable-id.ts), the same on every run.
+ */
+import type { NoteResult } from '../check-note';
+import type { InputValue, Timepoint } from '../analysis/model';
+import type { DerivedValue } from '../derive/model';
+import { FIELDS, type FieldDef } from '../fields/registry';
+import { unitById } from '../fields/units';
+import type { SectionId } from '../fields/sections';
+import { assertExportOptions, writtenLabel } from './columns';
+import { stableHex128, stableUuid } from './stable-id';
+import { unitForPeople } from './units';
+
+export interface FhirOptions {
+  /** ISO 8601 date-time with a zone for 00:00 of day 1 (`2024-03-01T00:00:00+01:00`). */
+  readonly anchor?: string;
+  /** Leave the timepoint labels out of the Observations' notes. */
+  readonly redactProse: boolean;
+  /** Whole days added to every time (to the effective time with an anchor, to the day in the note). */
+  readonly shiftDays: number;
+}
+
+export interface FhirCoding {
+  readonly system: string;
+  readonly code: string;
+  readonly display?: string;
+}
+
+export interface FhirCodeableConcept {
+  readonly coding: readonly FhirCoding[];
+  readonly text?: string;
+}
+
+export interface FhirQuantity {
+  readonly value: number;
+  readonly unit: string;
+  readonly system: string;
+  readonly code: string;
+}
+
+export interface FhirObservationComponent {
+  readonly code: FhirCodeableConcept;
+  readonly valueQuantity: FhirQuantity;
+}
+
+export interface FhirObservation {
+  readonly resourceType: 'Observation';
+  readonly id: string;
+  readonly status: 'final';
+  readonly category?: readonly FhirCodeableConcept[];
+  readonly code: FhirCodeableConcept;
+  readonly effectiveDateTime?: string;
+  readonly valueQuantity?: FhirQuantity;
+  readonly derivedFrom?: readonly { readonly reference: string }[];
+  readonly note?: readonly { readonly text: string }[];
+  readonly component?: readonly FhirObservationComponent[];
+}
+
+export interface FhirBundleEntry {
+  readonly fullUrl: string;
+  readonly resource: FhirObservation;
+}
+
+export interface FhirBundle {
+  readonly resourceType: 'Bundle';
+  readonly id: string;
+  readonly type: 'collection';
+  /** Left out when the note states nothing with a LOINC code (FHIR has no empty arrays). */
+  readonly entry?: readonly FhirBundleEntry[];
+}
+
+const LOINC = 'http://loinc.org';
+const UCUM = 'http://unitsofmeasure.org';
+const CATEGORY_SYSTEM = 'http://terminology.hl7.org/CodeSystem/observation-category';
+const MINUTES_PER_DAY = 1440;
+
+export type ObservationCategory = 'vital-signs' | 'laboratory' | 'therapy';
+
+const CATEGORY_DISPLAY: Readonly<Record<ObservationCategory, string>> = {
+  'vital-signs': 'Vital Signs',
+  laboratory: 'Laboratory',
+  therapy: 'Therapy',
+};
+
+const CATEGORY_OF_SECTION: Readonly<Record<SectionId, ObservationCategory | null>> = {
+  patient: 'vital-signs',
+  place: null,
+  units: null,
+  vitals: 'vital-signs',
+  oxygen: 'therapy',
+  vent: 'therapy',
+  abg: 'laboratory',
+  vbg: 'laboratory',
+  labs: 'laboratory',
+  note: null,
+};
+
+/** The observation category of a field (see the header comment); null for none. */
+export function observationCategory(field: FieldDef): ObservationCategory | null {
+  if (field.id === 'age') return null;
+  const section = field.sections[0];
+  return section ? CATEGORY_OF_SECTION[section] : null;
+}
+
+// Blood pressure components: LOINC codes from memory (the registry holds only the panel code).
+const SYSTOLIC: FhirCoding = { system: LOINC, code: '8480-6', display: 'Systolic blood pressure' };
+const DIASTOLIC: FhirCoding = { system: LOINC, code: '8462-4', display: 'Diastolic blood pressure' };
+
+// The P/F ratio (Horowitz index): LOINC code and display from memory.
+const PF_RATIO: FhirCoding = { system: LOINC, code: '50984-4', display: 'Horowitz index in Arterial blood+Inspired gas' };
+
+// ── time ──────────────────────────────────────────────────────────────────────
+
+interface Anchor {
+  /** The anchor's wall-clock time as if it were UTC, in milliseconds. */
+  readonly wallMs: number;
+  /** `Z` or `±hh:mm`, written back after every shifted time. */
+  readonly zone: string;
+}
+
+const ANCHOR_PATTERN = /^(\d{4})-(\d{2})-(\d{2})T(\d{2}):(\d{2})(?::(\d{2})(?:\.(\d{1,9}))?)?(Z|[+-]\d{2}:\d{2})$/;
+
+function parseAnchor(anchor: string): Anchor | string {
+  const m = ANCHOR_PATTERN.exec(anchor);
+  if (!m) return `the anchor \`${anchor}\` is not an ISO 8601 date-time with a zone, e.g. 2024-03-01T00:00:00Z or 2024-03-01T00:00+01:00`;
+  const [year, month, day, hour, minute, second] = [m[1], m[2], m[3], m[4], m[5], m[6] ?? '0'].map(Number) as [number, number, number, number, number, number];
+  const ms = Number((m[7] ?? '').padEnd(3, '0').slice(0, 3));
+  const zone = m[8] ?? 'Z';
+  const wallMs = Date.UTC(year, month - 1, day, hour, minute, second, ms);
+  const back = new Date(wallMs);
+  const zoneOk = zone === 'Z' || (Number(zone.slice(1, 3)) <= 14 && Number(zone.slice(4, 6)) < 60);
+  if (year < 1 || back.getUTCFullYear() !== year || back.getUTCMonth() !== month - 1 || back.getUTCDate() !== day || hour > 23 || minute > 59 || second > 59 || !zoneOk) {
+    return `the anchor \`${anchor}\` is not a valid date and time`;
+  }
+  return { wallMs, zone };
+}
+
+/** Why an anchor cannot be used, or null when it can (for the CLI's usage errors). */
+export function anchorProblem(anchor: string): string | null {
+  const parsed = parseAnchor(anchor);
+  return typeof parsed === 'string' ? parsed : null;
+}
+
+const pad = (n: number, width = 2): string => String(n).padStart(width, '0');
+
+/** The anchor plus some minutes, as a FHIR dateTime in the anchor's offset; null outside years 1–9999. */
+function shiftedDateTime(anchor: Anchor, minutes: number): string | null {
+  const d = new Date(anchor.wallMs + minutes * 60_000);
+  const year = d.getUTCFullYear();
+  if (!Number.isFinite(d.getTime()) || year < 1 || year > 9999) return null;
+  const ms = d.getUTCMilliseconds();
+  return `${pad(year, 4)}-${pad(d.getUTCMonth() + 1)}-${pad(d.getUTCDate())}T${pad(d.getUTCHours())}:${pad(d.getUTCMinutes())}:${pad(d.getUTCSeconds())}${ms ? `.${pad(ms, 3)}` : ''}${anchor.zone}`;
+}
+
+/** `day 2 08:00` (shifted), `day 2` when only the day is known, null when nothing is. */
+function relativeTime(tp: Timepoint, shiftDays: number): string | null {
+  const minutes = tp.time.minutes;
+  if (minutes !== null && Number.isFinite(minutes)) {
+    const total = minutes + shiftDays * MINUTES_PER_DAY;
+    const day = Math.floor(total / MINUTES_PER_DAY) + 1;
+    const clock = total - (day - 1) * MINUTES_PER_DAY;
+    return `day ${day} ${pad(Math.floor(clock / 60))}:${pad(Math.round(clock % 60))}`;
+  }
+  return tp.time.day !== null && Number.isFinite(tp.time.day) ? `day ${tp.time.day + shiftDays}` : null;
+}
+
+function timepointNote(tp: Timepoint, written: string | null, options: FhirOptions): string {
+  const when = relativeTime(tp, options.shiftDays);
+  const label = options.redactProse || !written ? '' : `: ${written}`;
+  return `Pneumark timepoint ${tp.index}${when ? ` (${when})` : ''}${label}`;
+}
+
+// ── observations ──────────────────────────────────────────────────────────────
+
+const finite = (value: number | null | undefined): value is number => value !== null && value !== undefined && Number.isFinite(value);
+
+function quantity(value: number, unitId: string): FhirQuantity | null {
+  const unit = unitById(unitId);
+  if (!unit || !finite(value)) return null;
+  return { value, unit: unitForPeople(unitId) ?? unit.id, system: UCUM, code: unit.ucum };
+}
+
+function categoryOf(category: ObservationCategory | null): { category?: readonly FhirCodeableConcept[] } {
+  return category ? { category: [{ coding: [{ system: CATEGORY_SYSTEM, code: category, display: CATEGORY_DISPLAY[category] }] }] } : {};
+}
+
+interface Place {
+  /** `0`, `1`, … or `header`: the timepoint part of ids. */
+  readonly key: string;
+  readonly effective: string | null;
+  readonly note: string;
+}
+
+/** The Observation of one stated value; null when it has no LOINC code or no usable number. */
+function fieldObservation(field: FieldDef, input: InputValue, place: Place): Omit<FhirObservation, 'id'> | null {
+  const loinc = field.loinc;
+  const unitId = input.stated.unit;
+  if (!loinc || !input.stated.usable || unitId === null) return null;
+  const base = {
+    resourceType: 'Observation' as const,
+    status: 'final' as const,
+    ...categoryOf(observationCategory(field)),
+    code: { coding: [{ system: LOINC, code: loinc.code, display: loinc.display }], text: field.label },
+    ...(place.effective ? { effectiveDateTime: place.effective } : {}),
+  };
+  const note = [{ text: place.note }];
+  if (field.kind === 'pair') {
+    const [systolic, diastolic] = input.stated.parts ?? [];
+    const s = finite(systolic) ? quantity(systolic, unitId) : null;
+    const d = finite(diastolic) ? quantity(diastolic, unitId) : null;
+    if (!s || !d) return null;
+    return { ...base, note, component: [{ code: { coding: [SYSTOLIC] }, valueQuantity: s }, { code: { coding: [DIASTOLIC] }, valueQuantity: d }] };
+  }
+  const value = input.stated.value;
+  const q = finite(value) ? quantity(value, unitId) : null;
+  return q ? { ...base, valueQuantity: q, note } : null;
+}
+
+const idPart = (id: string): string => id.replace(/_/g, '-');
+
+/** One Bundle of the note's Observations. Throws a RangeError for a bad anchor or shiftDays (see `anchorProblem`). */
+export function toFhirBundle(path: string, result: NoteResult, options: FhirOptions): FhirBundle {
+  assertExportOptions(options);
+  const anchor = options.anchor === undefined ? null : parseAnchor(options.anchor);
+  if (typeof anchor === 'string') throw new RangeError(anchor);
+
+  const entries: FhirBundleEntry[] = [];
+  /** fullUrl of each field Observation by `<timepoint>:<fieldId>`, for derivedFrom. */
+  const fullUrls = new Map<string, string>();
+  const add = (place: Place, what: string, resource: Omit<FhirObservation, 'id'>): string => {
+    const fullUrl = `urn:uuid:${stableUuid(`${path}\u0000${place.key}\u0000${what}`)}`;
+    const { resourceType, ...rest } = resource;
+    entries.push({ fullUrl, resource: { resourceType, id: `obs-${place.key}-${idPart(what)}`, ...rest } });
+    return fullUrl;
+  };
+
+  const timepoints = result.analysis.timeline.timepoints;
+
+  // Header values, once.
+  const header = new Map<string, InputValue>();
+  for (const tp of timepoints) for (const [id, input] of tp.values) if (input.origin.kind === 'header' && !header.has(id)) header.set(id, input);
+  const headerPlace: Place = { key: 'header', effective: null, note: 'Pneumark note header (describes the patient for the whole note)' };
+  for (const field of FIELDS) {
+    const input = header.get(field.id);
+    const resource = input ? fieldObservation(field, input, headerPlace) : null;
+    if (resource) add(headerPlace, field.id, resource);
+  }
+
+  for (const tp of timepoints) {
+    const minutes = tp.time.minutes;
+    const effective = anchor && finite(minutes) ? shiftedDateTime(anchor, minutes + options.shiftDays * MINUTES_PER_DAY) : null;
+    const place: Place = { key: String(tp.index), effective, note: timepointNote(tp, writtenLabel(result, tp), options) };
+    for (const field of FIELDS) {
+      const input = tp.values.get(field.id);
+      if (!input || input.origin.kind !== 'here') continue;
+      const resource = fieldObservation(field, input, place);
+      if (resource) fullUrls.set(`${tp.index}:${field.id}`, add(place, field.id, resource));
+    }
+    const pf = (result.analysis.derivations[tp.index]?.derived ?? []).find((d) => d.id === 'pf_ratio');
+    if (pf) {
+      const resource = pfObservation(pf, tp, place, fullUrls);
+      if (resource) add(place, pf.id, resource);
+    }
+  }
+
+  return {
+    resourceType: 'Bundle',
+    id: `pneumark-${stableHex128(path).slice(0, 16)}`,
+    type: 'collection',
+    ...(entries.length ? { entry: entries } : {}),
+  };
+}
+
+function pfObservation(pf: DerivedValue, tp: Timepoint, place: Place, fullUrls: ReadonlyMap<string, string>): Omit<FhirObservation, 'id'> | null {
+  const q = quantity(pf.value, 'mmHg');
+  if (!q) return null;
+  const references: { reference: string }[] = [];
+  for (const term of pf.inputs) {
+    if (!term.fieldId) continue;
+    const origin = term.origin;
+    const at = origin.kind === 'here' ? tp.index : origin.kind === 'carried' ? origin.timepoint : null;
+    const url = at === null ? undefined : fullUrls.get(`${at}:${term.fieldId}`);
+    if (url && !references.some((r) => r.reference === url)) references.push({ reference: url });
+  }
+  return {
+    resourceType: 'Observation',
+    status: 'final',
+    ...categoryOf('laboratory'),
+    code: { coding: [PF_RATIO], text: pf.label },
+    ...(place.effective ? { effectiveDateTime: place.effective } : {}),
+    valueQuantity: q,
+    ...(references.length ? { derivedFrom: references } : {}),
+    note: [{ text: place.note }],
+  };
+}

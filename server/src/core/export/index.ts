@@ -1,0 +1,35 @@
+/**
+ * Exports: pure functions from a checked note (`NoteResult`) to data other tools read. Text and
+ * options in, strings or plain objects out; no file system, no editor. The CLI calls them once
+ * per note and owns files, ordering and output streams.
+ *
+ * - columns.ts  the column model of the tabular exports: one row per timepoint (`timepointRows`)
+ * - csv.ts      RFC 4180 CSV of those rows (header once, then records, so notes can be streamed)
+ * - jsonl.ts    JSON Lines: one object per timepoint, the same keys plus the findings
+ * - fhir.ts     a FHIR R4 collection Bundle of LOINC-coded Observations per note
+ * - sarif.ts    a SARIF 2.1.0 log of the findings of many notes
+ *
+ * May import: the rest of the core. Must not import: node:fs, vscode, the server or the CLI.
+ * To add a format: a new file here taking `(path, result, options)`, exported below, with golden
+ * files under tests/golden/ and a schema or read-back test under tests/export/.
+ */
+export { exportColumns, timepointRows, findingsByTimepoint, findingsOfTimepoint, writtenLabel, RANGE_DERIVED_IDS, type Cell, type ColumnDef, type ColumnKind, type ExportOptions, type Row } from './columns';
+export { csvField, csvHeader, csvRecord, toCsv } from './csv';
+export { jsonlRecords, toJsonl, type JsonlFinding, type JsonlRecord } from './jsonl';
+export {
+  anchorProblem,
+  observationCategory,
+  toFhirBundle,
+  type FhirBundle,
+  type FhirBundleEntry,
+  type FhirCodeableConcept,
+  type FhirCoding,
+  type FhirObservation,
+  type FhirObservationComponent,
+  type FhirOptions,
+  type FhirQuantity,
+  type ObservationCategory,
+} from './fhir';
+export { artifactUri, SARIF_SCHEMA, toSarifLog, type SarifFile, type SarifOptions } from './sarif';
+export { stableUuid } from './stable-id';
+export { ucumCode, unitSlug } from './units';

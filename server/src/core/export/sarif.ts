@@ -1,0 +1,163 @@
+/**
+ * SARIF 2.1.0 export of the findings of one run over several notes, for code-scanning viewers
+ * and CI annotations.
+ *
+ * - One run; `tool.driver` is `pneumark` with one rule per check of CHECKS, in registry order:
+ *   id = code (`PN101`), name = alias, shortDescription = title, fullDescription = what fires it,
+ *   help = how to fix it and the source, defaultConfiguration.level from the default severity,
+ *   properties.tags = the check's tags. No URIs are written for the rules: the documentation is
+ *   `docs/checks.md` in the repository, which has no fixed absolute address.
+ * - Levels: error → error, warning → warning, information and hint → note.
+ * - Each finding is a result with ruleId and ruleIndex, its message, one physical location and,
+ *   when the finding points elsewhere too, relatedLocations. Regions are 1-based lines and
+ *   columns; columns count UTF-16 code units (`columnKind: utf16CodeUnits` on the run), as the
+ *   core's ranges do. An empty range becomes an empty region (start = end), a point.
+ * - A finding's fixes become `fixes`, each one artifact change whose replacements delete the
+ *   edit's region and insert its text.
+ * - Paths: backslashes become `/`, a leading `./` is dropped, and each segment is
+ *   percent-encoded as a URI reference requires (`my notes/a.pneu` → `my%20notes/a.pneu`).
+ *   Every file given, read or not, is listed once in `artifacts`; locations name its index.
+ * - A note that could not be read becomes a tool execution notification (level error) on the
+ *   invocation, and `executionSuccessful` is false when there is any: the run did not check
+ *   everything it was asked to (the CLI exits with 2 then).
+ */
+import type * as Sarif from 'sarif';
+import type { NoteResult } from '../check-note';
+import type { CheckDef } from '../checks/check';
+import { CHECKS } from '../checks/registry';
+import type { Finding, Range, Severity } from '../types';
+
+/**
+ * One note of the run: its checked result, or its findings alone (`findings` wins when both are
+ * given, so a caller can pass a filtered list), and why it could not be read, if it could not.
+ */
+export interface SarifFile {
+  readonly path: string;
+  readonly result?: NoteResult | null;
+  readonly findings?: readonly Finding[];
+  /** Why the file could not be read, or null. */
+  readonly problem: string | null;
+}
+
+export interface SarifOptions {
+  /** The version of pneumark that produced the log; left out when not given. */
+  readonly toolVersion: string;
+}
+
+export const SARIF_SCHEMA = 'https://json.schemastore.org/sarif-2.1.0.json';
+
+const LEVEL: Readonly<Record<Severity, Sarif.Result.level>> = {
+  error: 'error',
+  warning: 'warning',
+  information: 'note',
+  hint: 'note',
+};
+
+/** A path as a relative URI reference: forward slashes, each segment percent-encoded. */
+export function artifactUri(path: string): string {
+  return path
+    .replace(/\\/g, '/')
+    .replace(/^(\.\/)+/, '')
+    .split('/')
+    .map((segment) => encodeURIComponent(segment))
+    .join('/');
+}
+
+function rule(check: CheckDef): Sarif.ReportingDescriptor {
+  return {
+    id: check.code,
+    name: check.alias,
+    shortDescription: { text: check.title },
+    fullDescription: { text: check.doc.fires },
+    help: { text: `${check.doc.fix}\nSource: ${check.source}` },
+    defaultConfiguration: { level: LEVEL[check.severity] },
+    properties: { tags: [...check.tags] },
+  };
+}
+
+function region(range: Range): Sarif.Region {
+  return {
+    startLine: range.start.line + 1,
+    startColumn: range.start.character + 1,
+    endLine: range.end.line + 1,
+    endColumn: range.end.character + 1,
+  };
+}
+
+function sarifResult(finding: Finding, location: Sarif.ArtifactLocation, ruleIndex: ReadonlyMap<string, number>): Sarif.Result {
+  const index = ruleIndex.get(finding.code);
+  const result: Sarif.Result = {
+    ruleId: finding.code,
+    ...(index === undefined ? {} : { ruleIndex: index }),
+    level: LEVEL[finding.severity],
+    message: { text: finding.message },
+    locations: [{ physicalLocation: { artifactLocation: location, region: region(finding.range) } }],
+  };
+  if (finding.related?.length) {
+    result.relatedLocations = finding.related.map((r, i) => ({
+      id: i + 1,
+      physicalLocation: { artifactLocation: location, region: region(r.range) },
+      message: { text: r.message },
+    }));
+  }
+  if (finding.fixes.length) {
+    result.fixes = finding.fixes.map((fix) => ({
+      description: { text: fix.title },
+      artifactChanges: [{
+        artifactLocation: location,
+        replacements: fix.edits.map((edit) => ({ deletedRegion: region(edit.range), insertedContent: { text: edit.newText } })),
+      }],
+    }));
+  }
+  return result;
+}
+
+/** A SARIF log of the findings of every readable file, and a notification for every unreadable one. */
+export function toSarifLog(files: readonly SarifFile[], options?: SarifOptions): Sarif.Log {
+  const ruleIndex = new Map(CHECKS.map((c, i) => [c.code, i]));
+  const artifacts: Sarif.Artifact[] = [];
+  const artifactIndex = new Map<string, number>();
+  const locationOf = (path: string): Sarif.ArtifactLocation => {
+    const uri = artifactUri(path);
+    let index = artifactIndex.get(uri);
+    if (index === undefined) {
+      index = artifacts.length;
+      artifactIndex.set(uri, index);
+      artifacts.push({ location: { uri } });
+    }
+    return { uri, index };
+  };
+
+  const results: Sarif.Result[] = [];
+  const notifications: Sarif.Notification[] = [];
+  for (const file of files) {
+    const location = locationOf(file.path);
+    if (file.problem !== null) {
+      notifications.push({ level: 'error', message: { text: `${file.path}: cannot check: ${file.problem}` }, locations: [{ physicalLocation: { artifactLocation: location } }] });
+    }
+    for (const finding of file.findings ?? file.result?.findings ?? []) results.push(sarifResult(finding, location, ruleIndex));
+  }
+
+  const invocation: Sarif.Invocation = {
+    executionSuccessful: notifications.length === 0,
+    ...(notifications.length ? { toolExecutionNotifications: notifications } : {}),
+  };
+
+  return {
+    $schema: SARIF_SCHEMA,
+    version: '2.1.0',
+    runs: [{
+      tool: {
+        driver: {
+          name: 'pneumark',
+          ...(options?.toolVersion ? { version: options.toolVersion } : {}),
+          rules: CHECKS.map(rule),
+        },
+      },
+      invocations: [invocation],
+      ...(artifacts.length ? { artifacts } : {}),
+      columnKind: 'utf16CodeUnits',
+      results,
+    }],
+  };
+}

@@ -1,0 +1,214 @@
+/**
+ * Calendar dates and dates of birth. Numeric dates need three parts with one separator
+ * (`2026-03-04`, `04/03/2026`, `4.3.2026`) and a four-digit year from 1900 to 2099; a two-digit
+ * year (`12/03/61`) counts only after a birth cue. Written dates need a month name next to a day
+ * or a year (`4 March 2026`, `March 4, 2026`, `4th of March`, `Mar 2026`). A date after a birth
+ * cue (`DOB`, `D.O.B.`, `born`, `date of birth`) is a date of birth, and so is a bare year there.
+ * Shorthand gases (`7.28/56/71/26`), pressures (`120/80`), fractions (`3/7`) and LOINC codes
+ * (`2744-1`) have the wrong number of parts or a decimal, so they never read as dates.
+ */
+import { followedByUnit } from './quantities';
+import { endsWithPhrase, isAlnumAt, isBlankGap, isDigitAt, runsOf, withoutTrailing, wordsBefore, type Run } from './text';
+import { match, type PrivacyMatch } from './types';
+
+/** Month spellings: full names and abbreviations. */
+const MONTHS: readonly (readonly string[])[] = [
+  ['january', 'jan'], ['february', 'feb'], ['march', 'mar'], ['april', 'apr'], ['may'], ['june', 'jun'],
+  ['july', 'jul'], ['august', 'aug'], ['september', 'sep', 'sept'], ['october', 'oct'], ['november', 'nov'], ['december', 'dec'],
+];
+
+/** Full month names that are also ordinary words: they count only when capitalised. */
+const AMBIGUOUS_FULL = new Set(['may', 'march', 'august']);
+
+const BIRTH_FILLERS = new Set(['on', 'in', 'is', 'was', 'the', 'at']);
+
+/**
+ * Whether a run is a month name. Full names count in lower case too (except may, march and
+ * august, which must be capitalised); abbreviations must be capitalised (`Mar`, not `MAR`).
+ */
+export function monthOf(run: Run): number | null {
+  if (run.kind !== 'letters') return null;
+  const lower = run.text.toLowerCase();
+  const index = MONTHS.findIndex((names) => names.includes(lower));
+  if (index < 0) return null;
+  const full = MONTHS[index]![0] === lower;
+  const capitalised = run.text.charAt(0) === run.text.charAt(0).toUpperCase() && run.text.slice(1) === run.text.slice(1).toLowerCase();
+  if (full && !AMBIGUOUS_FULL.has(lower)) return index + 1;
+  return capitalised ? index + 1 : null;
+}
+
+/** A day of the month: `4`, `04`, `4th`, `22nd`. */
+function dayOf(run: Run | undefined): number | null {
+  if (!run) return null;
+  let digits = run.text;
+  if (run.kind === 'mixed') {
+    const suffix = run.text.slice(-2).toLowerCase();
+    if (!['st', 'nd', 'rd', 'th'].includes(suffix)) return null;
+    digits = run.text.slice(0, -2);
+    for (let k = 0; k < digits.length; k++) if (!isDigitAt(digits, k)) return null;
+  } else if (run.kind !== 'digits') return null;
+  if (digits.length < 1 || digits.length > 2) return null;
+  const d = Number(digits);
+  return d >= 1 && d <= 31 ? d : null;
+}
+
+function yearOf(run: Run | undefined): number | null {
+  if (!run || run.kind !== 'digits' || run.text.length !== 4) return null;
+  const y = Number(run.text);
+  return y >= 1900 && y <= 2099 ? y : null;
+}
+
+/** Whether a birth cue stands right before `start` (only blanks and marks between). */
+export function birthCueBefore(text: string, start: number): string | null {
+  const words = withoutTrailing(wordsBefore(text, start, 5), BIRTH_FILLERS);
+  if (endsWithPhrase(words, ['date', 'of', 'birth'])) return 'date of birth';
+  if (endsWithPhrase(words, ['birth', 'date'])) return 'birth date';
+  if (endsWithPhrase(words, ['d', 'o', 'b'])) return 'D.O.B.';
+  const last = words[words.length - 1];
+  if (last === 'dob' || last === 'born' || last === 'birthdate' || last === 'birthday') return last === 'dob' ? 'DOB' : last;
+  return null;
+}
+
+function isDateSep(gap: string): boolean {
+  return gap === '/' || gap === '-' || gap === '.';
+}
+
+/** Between words of a written date: blanks, or one hyphen (`4-Mar-2026`), or a comma and blanks. */
+function isWordGap(gap: string): boolean {
+  if (isBlankGap(gap) || gap === '-') return true;
+  if (gap === '.' || gap === ',') return false;
+  const first = gap.charAt(0);
+  return (first === ',' || first === '.') && isBlankGap(gap.slice(1));
+}
+
+function validDayMonth(a: number, b: number): boolean {
+  return (a >= 1 && b >= 1) && ((a <= 31 && b <= 12) || (a <= 12 && b <= 31));
+}
+
+interface Found {
+  readonly start: number;
+  readonly end: number;
+  /** A two-digit year: a date only after a birth cue. */
+  readonly needsBirthCue: boolean;
+}
+
+function numericDates(text: string, runs: readonly Run[]): Found[] {
+  const out: Found[] = [];
+  for (let i = 0; i + 2 < runs.length; i++) {
+    const a = runs[i]!;
+    const b = runs[i + 1]!;
+    let c = runs[i + 2]!;
+    // An ISO date with a time glued on: `2026-03-04T08:00` (the date part is the finding).
+    if (c.kind === 'mixed' && a.text.length === 4 && c.text.length > 3 && isDigitAt(c.text, 0) && isDigitAt(c.text, 1) && c.text.charAt(2) === 'T' && isDigitAt(c.text, 3)) {
+      c = { text: c.text.slice(0, 2), start: c.start, end: c.start + 2, kind: 'digits' };
+    }
+    if (a.kind !== 'digits' || b.kind !== 'digits' || c.kind !== 'digits') continue;
+    const g1 = text.slice(a.end, b.start);
+    const g2 = text.slice(b.end, c.start);
+    if (g1 !== g2 || !isDateSep(g1)) continue;
+    // Exactly three parts: nothing joined on either side.
+    const before = text.charAt(a.start - 1);
+    if (a.start > 0 && (isDateSep(before) || before === ',' || before === ':') && isAlnumAt(text, a.start - 2)) continue;
+    const after = text.charAt(c.end);
+    if ((isDateSep(after) || after === ',' || after === ':') && isAlnumAt(text, c.end + 1)) continue;
+    if (b.text.length > 2) continue;
+    const bn = Number(b.text);
+    if (a.text.length === 4) {
+      const y = yearOf(a);
+      if (y !== null && bn >= 1 && bn <= 12 && c.text.length <= 2 && Number(c.text) >= 1 && Number(c.text) <= 31) out.push({ start: a.start, end: c.end, needsBirthCue: false });
+      continue;
+    }
+    if (a.text.length > 2 || !validDayMonth(Number(a.text), bn)) continue;
+    if (c.text.length === 4 && yearOf(c) !== null) out.push({ start: a.start, end: c.end, needsBirthCue: false });
+    else if (c.text.length === 2) out.push({ start: a.start, end: c.end, needsBirthCue: true });
+  }
+  return out;
+}
+
+/** `20260304`: a compact year-month-day. */
+function compactDates(runs: readonly Run[]): Found[] {
+  const out: Found[] = [];
+  for (const r of runs) {
+    if (r.kind !== 'digits' || r.text.length !== 8) continue;
+    const y = Number(r.text.slice(0, 4));
+    const m = Number(r.text.slice(4, 6));
+    const d = Number(r.text.slice(6));
+    if (y >= 1900 && y <= 2099 && m >= 1 && m <= 12 && d >= 1 && d <= 31) out.push({ start: r.start, end: r.end, needsBirthCue: false });
+  }
+  return out;
+}
+
+/**
+ * Whether the character at `at` joins the date to more of a number: a letter or digit, or a mark
+ * (`.`, `,`, `:`, `/`, `-`) with a digit beyond it (`direction` is -1 before the date, 1 after).
+ */
+function joinedNumber(text: string, at: number, direction: -1 | 1): boolean {
+  if (at < 0 || at >= text.length) return false;
+  if (isAlnumAt(text, at)) return true;
+  const c = text.charAt(at);
+  return (c === '.' || c === ',' || c === ':' || c === '/' || c === '-') && isDigitAt(text, at + direction);
+}
+
+function writtenDates(text: string, runs: readonly Run[]): Found[] {
+  const out: Found[] = [];
+  const gapOk = (x: Run | undefined, y: Run | undefined) => x !== undefined && y !== undefined && isWordGap(text.slice(x.end, y.start));
+  for (let i = 0; i < runs.length; i++) {
+    const month = runs[i]!;
+    if (monthOf(month) === null) continue;
+    let start = month.start;
+    let end = month.end;
+    let found = false;
+    // Day before: `4 March`, `4th of March`.
+    const prev = runs[i - 1];
+    const prev2 = runs[i - 2];
+    if (gapOk(prev, month) && dayOf(prev) !== null) {
+      start = prev!.start;
+      found = true;
+    } else if (prev?.text.toLowerCase() === 'of' && gapOk(prev, month) && gapOk(prev2, prev) && dayOf(prev2) !== null) {
+      start = prev2!.start;
+      found = true;
+    }
+    let k = i + 1;
+    // Day after: `March 4`, `Mar. 4th` (only when no day came before).
+    if (!found && gapOk(month, runs[k]) && dayOf(runs[k]) !== null && yearOf(runs[k]) === null) {
+      end = runs[k]!.end;
+      found = true;
+      k++;
+    }
+    // Year after: `4 March 2026`, `March 4, 2026`, `March 2026`.
+    if (gapOk(runs[k - 1], runs[k]) && yearOf(runs[k]) !== null) {
+      end = runs[k]!.end;
+      found = true;
+    }
+    if (!found) continue;
+    // Not part of a longer token: `Aug 1.2 g` is a dose, `March 2026/27` no year.
+    if (joinedNumber(text, start - 1, -1) || joinedNumber(text, end, 1)) continue;
+    // `Aug 1 g`, `May 5 mg`: a quantity after a word that looks like a month.
+    if (followedByUnit(text, end)) continue;
+    out.push({ start, end, needsBirthCue: false });
+  }
+  return out;
+}
+
+function birthYears(text: string, runs: readonly Run[]): Found[] {
+  const out: Found[] = [];
+  for (const r of runs) {
+    if (yearOf(r) === null) continue;
+    const before = text.charAt(r.start - 1);
+    const after = text.charAt(r.end);
+    if (isDateSep(before) || isDateSep(after) || after === ':') continue;
+    if (birthCueBefore(text, r.start) !== null) out.push({ start: r.start, end: r.end, needsBirthCue: true });
+  }
+  return out;
+}
+
+export function findDates(text: string): PrivacyMatch[] {
+  const runs = runsOf(text);
+  const out: PrivacyMatch[] = [];
+  for (const f of [...numericDates(text, runs), ...compactDates(runs), ...writtenDates(text, runs), ...birthYears(text, runs)]) {
+    const cue = birthCueBefore(text, f.start);
+    if (cue !== null) out.push(match('birth-date', text, f.start, f.end, cue));
+    else if (!f.needsBirthCue) out.push(match('calendar-date', text, f.start, f.end, null));
+  }
+  return out;
+}

@@ -1,0 +1,74 @@
+/**
+ * Which parts of a note line are free text, where identifiers can hide: comments, note prose,
+ * timepoint labels, the whole of a line that is not a section, and on item lines everything but
+ * the readings (a known key with its number and unit is masked out, so `hr 118` or
+ * `bp 120/80` never reach the detectors, while a free word such as `mode Smith`, an unknown key
+ * or stray text does).
+ */
+import { fieldFor } from '../fields/registry';
+import type { LineNode, Span } from '../syntax/tree';
+import { scan } from './scan';
+import type { PrivacyMatch } from './types';
+
+export interface FreeText {
+  /** The text to scan; positions in it are positions in the line plus `start`. */
+  readonly text: string;
+  readonly start: number;
+}
+
+export function freeTextOf(node: LineNode): FreeText[] {
+  const out: FreeText[] = [];
+  const bodyEnd = node.comment ? node.comment.span.start : node.text.length;
+  switch (node.kind) {
+    case 'blank':
+      break;
+    case 'timepoint':
+      if (node.label) out.push({ text: node.label.text, start: node.label.span.start });
+      break;
+    case 'unknown': {
+      const end = node.rest ? node.rest.span.end : node.first.span.end;
+      out.push({ text: node.text.slice(node.first.span.start, end), start: node.first.span.start });
+      break;
+    }
+    case 'section':
+      if (node.section === 'note') {
+        if (node.prose) out.push({ text: node.prose.text, start: node.prose.span.start });
+      } else {
+        out.push({ text: maskReadings(node.text.slice(0, bodyEnd), node), start: 0 });
+      }
+      break;
+  }
+  if (node.comment) out.push({ text: node.comment.text, start: node.comment.span.start });
+  return out;
+}
+
+/** The body of an item line with each reading (known key, number or pair value, unit) blanked out. */
+function maskReadings(body: string, node: Extract<LineNode, { kind: 'section' }>): string {
+  const masked: Span[] = [];
+  for (const item of node.items) {
+    if (!item.value || item.value.kind === 'word') continue;
+    const known = item.implied !== null || fieldFor(node.section, item.keyName) !== undefined;
+    if (known) masked.push(item.span);
+  }
+  if (masked.length === 0) return body;
+  let out = '';
+  let at = 0;
+  for (const span of masked) {
+    const start = Math.max(at, Math.min(span.start, body.length));
+    const end = Math.max(start, Math.min(span.end, body.length));
+    out += body.slice(at, start) + ' '.repeat(end - start);
+    at = end;
+  }
+  return out + body.slice(at);
+}
+
+/** Identifiers on one line, with spans in line coordinates. */
+export function scanLine(node: LineNode): PrivacyMatch[] {
+  const out: PrivacyMatch[] = [];
+  for (const part of freeTextOf(node)) {
+    for (const m of scan(part.text)) {
+      out.push({ ...m, span: { start: m.span.start + part.start, end: m.span.end + part.start } });
+    }
+  }
+  return out;
+}

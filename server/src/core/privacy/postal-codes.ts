@@ -1,0 +1,129 @@
+/**
+ * Postal codes, conservatively: only shapes that clinical text does not produce.
+ * - UK postcodes in capitals with their letter rules (`SW1A 1AA`, `M1 1AE`): the inward part
+ *   never uses C, I, K, M, O or V, so `V1 2MM` or `T2 4HR`-like clinical shorthand stays silent.
+ * - US ZIP+4 (`12345-6789`).
+ * - A 5-digit ZIP after a comma and a US state abbreviation (`Springfield, IL 62704`), so
+ *   `Head CT 12345` stays silent.
+ * - After a postcode cue (`postcode`, `post code`, `postal code`, `zip`, `zip code`, `address`):
+ *   a UK postcode in any case, a Canadian one (`K1A 0B1`), a ZIP or ZIP+4.
+ */
+import { endsWithPhrase, isAlnumAt, isAsciiUpperAt, isBlankGap, isDigitAt, isLetterAt, runsOf, wordsBefore, type Run } from './text';
+import { match, type PrivacyMatch } from './types';
+
+const US_STATES = new Set([
+  'AL', 'AK', 'AZ', 'AR', 'CA', 'CO', 'CT', 'DE', 'DC', 'FL', 'GA', 'HI', 'ID', 'IL', 'IN', 'IA', 'KS', 'KY', 'LA', 'ME', 'MD', 'MA',
+  'MI', 'MN', 'MS', 'MO', 'MT', 'NE', 'NV', 'NH', 'NJ', 'NM', 'NY', 'NC', 'ND', 'OH', 'OK', 'OR', 'PA', 'RI', 'SC', 'SD', 'TN', 'TX',
+  'UT', 'VT', 'VA', 'WA', 'WV', 'WI', 'WY', 'PR',
+]);
+
+/** Letters a UK postcode may hold at each place (Royal Mail rules, from memory). */
+const UK_FIRST = 'ABCDEFGHIJKLMNOPRSTUWYZ';
+const UK_SECOND = 'ABCDEFGHKLMNOPQRSTUVWXY';
+const UK_THIRD = 'ABCDEFGHJKPSTUW';
+const UK_FOURTH = 'ABEHMNPRVWXY';
+const UK_INWARD = 'ABDEFGHJLNPQRSTUWXYZ';
+
+/** Inward parts that are clinical shorthand rather than postcodes. */
+const UK_INWARD_EXCLUDED = new Set(['HR', 'RR', 'BP']);
+
+/** The outward code of a UK postcode: A9, A9A, A99, AA9, AA9A, AA99 (capitals). */
+export function isUkOutward(code: string): boolean {
+  const c = code.toUpperCase();
+  const letter = (k: number, set: string) => set.includes(c.charAt(k)) && c.charAt(k) !== '';
+  const digit = (k: number) => isDigitAt(c, k);
+  switch (c.length) {
+    case 2: return letter(0, UK_FIRST) && digit(1);
+    case 3: return letter(0, UK_FIRST) && ((digit(1) && (digit(2) || letter(2, UK_THIRD))) || (letter(1, UK_SECOND) && digit(2)));
+    case 4: return letter(0, UK_FIRST) && letter(1, UK_SECOND) && digit(2) && (digit(3) || letter(3, UK_FOURTH));
+    default: return false;
+  }
+}
+
+/** The inward code of a UK postcode: 9AA with the allowed letters. */
+export function isUkInward(code: string): boolean {
+  const c = code.toUpperCase();
+  return c.length === 3 && isDigitAt(c, 0) && UK_INWARD.includes(c.charAt(1)) && UK_INWARD.includes(c.charAt(2)) && !UK_INWARD_EXCLUDED.has(c.slice(1));
+}
+
+function isCapitals(run: Run): boolean {
+  for (let k = 0; k < run.text.length; k++) if (isLetterAt(run.text, k) && !isAsciiUpperAt(run.text, k)) return false;
+  return true;
+}
+
+/** Canadian postal code: A9A 9A9. */
+function isCanadian(a: Run, b: Run): boolean {
+  const s = (a.text + b.text).toUpperCase();
+  if (a.text.length !== 3 || b.text.length !== 3) return false;
+  for (let k = 0; k < 6; k++) {
+    const wantsDigit = k % 2 === 1;
+    if (wantsDigit !== isDigitAt(s, k)) return false;
+    if (!wantsDigit && !isAsciiUpperAt(s, k)) return false;
+  }
+  return true;
+}
+
+function isDigits(run: Run | undefined, length: number): boolean {
+  return run !== undefined && run.kind === 'digits' && run.text.length === length;
+}
+
+function isPostcodeCue(text: string, start: number): string | null {
+  const words = wordsBefore(text, start, 3);
+  if (endsWithPhrase(words, ['post', 'code'])) return 'post code';
+  if (endsWithPhrase(words, ['postal', 'code'])) return 'postal code';
+  if (endsWithPhrase(words, ['zip', 'code'])) return 'zip code';
+  const last = words[words.length - 1];
+  if (last === 'postcode' || last === 'zip' || last === 'zipcode' || last === 'address' || last === 'addr') return last;
+  return null;
+}
+
+/** A run stands alone: not glued to letters, digits or a decimal point on either side. */
+function standsAlone(text: string, start: number, end: number): boolean {
+  const before = text.charAt(start - 1);
+  const after = text.charAt(end);
+  if (isAlnumAt(text, start - 1) || isAlnumAt(text, end)) return false;
+  if ((before === '.' || before === '/' || before === '-') && isAlnumAt(text, start - 2)) return false;
+  if ((after === '.' || after === '/' || after === '-') && isAlnumAt(text, end + 1)) return false;
+  return true;
+}
+
+export function findPostalCodes(text: string): PrivacyMatch[] {
+  const runs = runsOf(text);
+  const out: PrivacyMatch[] = [];
+  for (let i = 0; i < runs.length; i++) {
+    const a = runs[i]!;
+    const b = runs[i + 1];
+    const gap = b ? text.slice(a.end, b.start) : '';
+    const cue = isPostcodeCue(text, a.start);
+    // UK: outward, one blank, inward.
+    if (b && gap === ' ' && a.kind !== 'letters' && b.kind === 'mixed' && isUkOutward(a.text) && isUkInward(b.text) && standsAlone(text, a.start, b.end)) {
+      if (cue !== null || (isCapitals(a) && isCapitals(b))) {
+        out.push(match('postal-code', text, a.start, b.end, cue));
+        i++;
+        continue;
+      }
+    }
+    // Canadian, after a cue only.
+    if (cue !== null && b && isBlankGap(gap) && isCanadian(a, b) && standsAlone(text, a.start, b.end)) {
+      out.push(match('postal-code', text, a.start, b.end, cue));
+      i++;
+      continue;
+    }
+    // ZIP+4.
+    if (isDigits(a, 5) && gap === '-' && isDigits(b, 4) && standsAlone(text, a.start, b!.end)) {
+      out.push(match('postal-code', text, a.start, b!.end, cue));
+      i++;
+      continue;
+    }
+    // 5-digit ZIP after a cue, or after `, ST` / `Place ST`.
+    if (isDigits(a, 5) && standsAlone(text, a.start, a.end)) {
+      const state = runs[i - 1];
+      const place = runs[i - 2];
+      const stateOk = state !== undefined && US_STATES.has(state.text) && isBlankGap(text.slice(state.end, a.start));
+      const before = state && place ? text.slice(place.end, state.start) : '';
+      const placeOk = place !== undefined && place.kind === 'letters' && before.startsWith(',') && isBlankGap(before.slice(1));
+      if (cue !== null || (stateOk && placeOk)) out.push(match('postal-code', text, a.start, a.end, cue ?? state?.text ?? null));
+    }
+  }
+  return out;
+}

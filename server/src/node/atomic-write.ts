@@ -1,0 +1,72 @@
+/**
+ * Writing a note back without ever losing it: the new text goes to a temporary file beside the
+ * note (same folder, so the rename is atomic), is flushed, and replaces the note by rename only if
+ * the note on disk is still exactly what was read. A write interrupted at any point leaves either
+ * the original or the new note, never a mix; a note edited by someone else meanwhile is left alone.
+ */
+import { closeSync, fsyncSync, openSync, readFileSync, renameSync, statSync, unlinkSync, writeSync } from 'node:fs';
+import { basename, dirname, join } from 'node:path';
+
+export interface ReadSnapshot {
+  readonly text: string;
+  readonly bytes: Buffer;
+  readonly mtimeMs: number;
+  readonly size: number;
+}
+
+export function readSnapshot(path: string): ReadSnapshot {
+  const bytes = readFileSync(path);
+  const stat = statSync(path);
+  return { bytes, text: bytes.toString('utf8'), mtimeMs: stat.mtimeMs, size: stat.size };
+}
+
+export type WriteOutcome = 'written' | 'changed-on-disk';
+
+/** Test hook: called after the temporary file is complete and before the rename. */
+export type BeforeRename = (tempPath: string) => void;
+
+export function writeIfUnchanged(path: string, snapshot: ReadSnapshot, text: string, beforeRename?: BeforeRename): WriteOutcome {
+  const temp = join(dirname(path), `.${basename(path)}.pneumark-${process.pid}-${Date.now()}.tmp`);
+  const fd = openSync(temp, 'wx', statSync(path).mode & 0o777);
+  try {
+    const data = Buffer.from(text, 'utf8');
+    let offset = 0;
+    while (offset < data.length) offset += writeSync(fd, data, offset, data.length - offset);
+    fsyncSync(fd);
+  } catch (error) {
+    closeSync(fd);
+    safeUnlink(temp);
+    throw error;
+  }
+  closeSync(fd);
+  try {
+    beforeRename?.(temp);
+    if (!unchanged(path, snapshot)) {
+      safeUnlink(temp);
+      return 'changed-on-disk';
+    }
+    renameSync(temp, path);
+    return 'written';
+  } catch (error) {
+    safeUnlink(temp);
+    throw error;
+  }
+}
+
+function unchanged(path: string, snapshot: ReadSnapshot): boolean {
+  try {
+    const stat = statSync(path);
+    if (stat.size !== snapshot.size || stat.mtimeMs !== snapshot.mtimeMs) return false;
+    return readFileSync(path).equals(snapshot.bytes);
+  } catch {
+    return false;
+  }
+}
+
+function safeUnlink(path: string): void {
+  try {
+    unlinkSync(path);
+  } catch {
+    // already gone
+  }
+}

@@ -1,0 +1,62 @@
+// Benchmark of the command line on a generated corpus of 10,000 invented notes (5 to 35
+// timepoints each). Prints figures; asserts nothing. `npm run bench:cli` (builds first).
+//   analysis in process   checkNote over every note (parse + timeline + derived values + checks)
+//   JSON.parse floor      the same notes expressed as JSON (timepoints with their values), parsed
+//   check / export csv    the built command over the corpus folder, wall time
+import { spawnSync } from 'node:child_process';
+import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { createRequire } from 'node:module';
+import { availableParallelism, tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { generateNote } from './generate.mjs';
+
+const require = createRequire(import.meta.url);
+const core = require('../../dist/core.js');
+const NOTES = Number(process.env.BENCH_NOTES ?? 10000);
+
+const texts = [];
+for (let i = 0; i < NOTES; i++) texts.push(generateNote(5 + (i % 31), i + 1));
+const noteBytes = texts.reduce((n, t) => n + Buffer.byteLength(t), 0);
+
+// The same content as JSON: per note, its timepoints with label, time and stated values.
+const jsons = texts.map((t) => JSON.stringify(core.checkNote(t).analysis.timeline.timepoints.map((tp) => ({
+  label: tp.label, day: tp.time.day, minutes: tp.time.minutes,
+  values: Object.fromEntries(tp.stated.map((s) => [s.fieldId, s.word ?? s.parts ?? s.value])),
+}))));
+const jsonBytes = jsons.reduce((n, t) => n + Buffer.byteLength(t), 0);
+
+const time = (f) => { const t = performance.now(); f(); return (performance.now() - t) / 1000; };
+let ours = Infinity;
+let floor = Infinity;
+for (let r = 0; r < 3; r++) {
+  ours = Math.min(ours, time(() => { for (const t of texts) core.checkNote(t); }));
+  floor = Math.min(floor, time(() => { for (const j of jsons) JSON.parse(j); }));
+}
+
+const dir = mkdtempSync(join(tmpdir(), 'pneumark-bench-'));
+texts.forEach((t, i) => {
+  const folder = join(dir, `ward-${String(i % 20).padStart(2, '0')}`);
+  mkdirSync(folder, { recursive: true });
+  writeFileSync(join(folder, `note-${String(i).padStart(5, '0')}.pneu`), t);
+});
+const cli = join(process.cwd(), 'dist/cli.js');
+const wall = (args) => {
+  const t = performance.now();
+  const r = spawnSync(process.execPath, [cli, ...args], { cwd: dir, encoding: 'utf8', maxBuffer: 1 << 30, env: { ...process.env, NO_COLOR: '1' } });
+  const s = (performance.now() - t) / 1000;
+  if (r.status === 2) throw new Error(`${args.join(' ')} failed: ${r.stderr.slice(0, 500)}`);
+  return { s, out: r.stdout.length };
+};
+const check = wall(['check', '--quiet', '.']);
+const exportCsv = wall(['export', '--format', 'csv', '.']);
+rmSync(dir, { recursive: true, force: true });
+
+const mb = (b) => b / 1048576;
+console.log(`Pneumark command-line benchmark: ${NOTES} notes, ${mb(noteBytes).toFixed(1)} MB of notes (${mb(jsonBytes).toFixed(1)} MB as JSON), Node ${process.version}, ${availableParallelism()} cores`);
+console.log(`${'measure'.padEnd(40)} ${'seconds'.padStart(8)} ${'notes/s'.padStart(10)} ${'MB/s'.padStart(8)}`);
+const line = (what, s, bytes) => console.log(`${what.padEnd(40)} ${s.toFixed(2).padStart(8)} ${(NOTES / s).toFixed(0).padStart(10)} ${mb(bytes / s).toFixed(2).padStart(8)}`);
+line('analysis in process (checkNote)', ours, noteBytes);
+line('JSON.parse of the same corpus (floor)', floor, jsonBytes);
+line('pneumark check (whole corpus, wall)', check.s, noteBytes);
+line('pneumark export --format csv (wall)', exportCsv.s, noteBytes);
+console.log(`analysis / JSON.parse time ratio: ${(ours / floor).toFixed(1)}× (target ≤ 3×); check of the corpus: ${check.s.toFixed(1)} s (target < 10 s)`);

@@ -1,0 +1,182 @@
+// The command line over folders of notes: patterns, exclusions, limits, formatting in place,
+// and the same output whatever the parallelism.
+import { spawnSync } from 'node:child_process';
+import { cpSync, mkdirSync, mkdtempSync, readFileSync, readdirSync, utimesSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { Writable } from 'node:stream';
+import { describe, expect, it } from 'vitest';
+import type { Io } from '../../server/src/cli/args';
+import { fmtHooks } from '../../server/src/cli/fmt-command';
+import { run } from '../../server/src/cli/main';
+
+function io(cwd: string, stdinText = ''): Io & { out: () => string; err: () => string } {
+  let out = '';
+  let err = '';
+  return {
+    cwd,
+    env: { NO_COLOR: '1' },
+    stdout: { write: (s: string) => { out += s; return true; }, isTTY: false },
+    stderr: new Writable({ write(chunk: Buffer, _e, done) { err += chunk.toString(); done(); } }),
+    stdin: () => Buffer.from(stdinText),
+    out: () => out,
+    err: () => err,
+  };
+}
+
+function corpus(): string {
+  const dir = mkdtempSync(join(tmpdir(), 'pneumark-corpus-'));
+  mkdirSync(join(dir, 'ward/a'), { recursive: true });
+  mkdirSync(join(dir, 'archive'), { recursive: true });
+  writeFileSync(join(dir, 'ward/a/one.pneu'), '@ 08:00\nvitals hr 80\n');
+  writeFileSync(join(dir, 'ward/two.pneu'), '@ 08:00\nvitals spo2 104\n');
+  writeFileSync(join(dir, 'ward/three.pneu'), '@ 08:00\nvitals hr 236\n');
+  writeFileSync(join(dir, 'archive/old.pneu'), '@ 08:00\nvitals spo2 105\n');
+  writeFileSync(join(dir, 'readme.txt'), 'not a note');
+  return dir;
+}
+
+describe('finding notes', () => {
+  it('walks folders and expands glob patterns, in sorted order', async () => {
+    const dir = corpus();
+    const all = io(dir);
+    await run(['check', '.'], all);
+    expect(all.out()).toMatch(/4 notes checked/);
+    const pattern = io(dir);
+    await run(['check', 'ward/**/*.pneu'], pattern);
+    const paths = pattern.out().split('\n').filter((l) => /\.pneu:\d/.test(l)).map((l) => l.split(':')[0]);
+    expect(paths).toEqual(['ward/three.pneu', 'ward/two.pneu']);
+    expect(pattern.out()).toMatch(/3 notes checked/);
+  });
+
+  it('leaves out what --exclude and .pneuignore name', async () => {
+    const dir = corpus();
+    const excluded = io(dir);
+    await run(['check', '.', '--exclude', 'archive/'], excluded);
+    expect(excluded.out()).toMatch(/3 notes checked/);
+    writeFileSync(join(dir, '.pneuignore'), '# old notes\narchive/\nward/three.pneu\n');
+    const ignored = io(dir);
+    await run(['check', '.'], ignored);
+    expect(ignored.out()).toMatch(/2 notes checked/);
+  });
+
+  it('says when a pattern matches nothing, and goes on', async () => {
+    const dir = corpus();
+    const out = io(dir);
+    expect(await run(['check', 'nowhere/**/*.pneu', 'ward/a/one.pneu'], out)).toBe(2);
+    expect(out.err()).toMatch(/nowhere\/\*\*\/\*\.pneu: no file matches this pattern/);
+    expect(out.out()).toMatch(/1 note checked/);
+  });
+});
+
+describe('limits and levels', () => {
+  it('fails on more warnings than --max-warnings', async () => {
+    const dir = corpus();
+    expect(await run(['check', 'ward/three.pneu', '--max-warnings', '0'], io(dir))).toBe(1);
+    expect(await run(['check', 'ward/three.pneu', '--max-warnings', '1'], io(dir))).toBe(0);
+    expect(await run(['check', 'ward/three.pneu', '--max-warnings', 'lots'], io(dir))).toBe(2);
+  });
+
+  it('prints help for every command', async () => {
+    for (const command of ['show', 'check', 'export', 'fmt', 'docs']) {
+      const out = io(process.cwd());
+      expect(await run([command, '--help'], out)).toBe(0);
+      expect(out.out()).toMatch(new RegExp(`^Usage: pneumark ${command}`));
+    }
+  });
+});
+
+describe('fmt', () => {
+  const messy = '@ 08:00   first\nvitals hr 80,rr 12 ,  spo2 97 %\n';
+  const tidy = '@ 08:00  first\nvitals    hr 80, rr 12, spo2 97 %\n';
+
+  it('prints a formatted note, lists notes that would change, and rewrites them', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'pneumark-fmt-'));
+    writeFileSync(join(dir, 'a.pneu'), messy);
+    writeFileSync(join(dir, 'b.pneu'), tidy);
+    const printed = io(dir);
+    expect(await run(['fmt', 'a.pneu'], printed)).toBe(0);
+    expect(printed.out()).toBe(tidy);
+    const checked = io(dir);
+    expect(await run(['fmt', '--check', '.'], checked)).toBe(1);
+    expect(checked.out()).toBe('a.pneu\n');
+    expect(await run(['fmt', '--write', '.'], io(dir))).toBe(0);
+    expect(readFileSync(join(dir, 'a.pneu'), 'utf8')).toBe(tidy);
+    expect(await run(['fmt', '--check', '.'], io(dir))).toBe(0);
+    expect(readdirSync(dir).sort()).toEqual(['a.pneu', 'b.pneu']);
+  });
+
+  it('refuses to rewrite a note with syntax errors unless --force', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'pneumark-fmt-'));
+    const broken = `${messy}vitls hr 80\n`;
+    writeFileSync(join(dir, 'a.pneu'), broken);
+    const out = io(dir);
+    expect(await run(['fmt', '--write', 'a.pneu'], out)).toBe(2);
+    expect(out.err()).toMatch(/not rewritten: 1 syntax error/);
+    expect(readFileSync(join(dir, 'a.pneu'), 'utf8')).toBe(broken);
+    expect(await run(['fmt', '--write', '--force', 'a.pneu'], io(dir))).toBe(0);
+    expect(readFileSync(join(dir, 'a.pneu'), 'utf8')).toBe(`${tidy}vitls hr 80\n`);
+  });
+
+  it('never overwrites a note that changed on disk between read and write', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'pneumark-fmt-'));
+    const file = join(dir, 'a.pneu');
+    writeFileSync(file, messy);
+    const concurrent = `${messy}note   added by someone else meanwhile\n`;
+    fmtHooks.beforeRename = () => {
+      writeFileSync(file, concurrent);
+      utimesSync(file, new Date(), new Date(Date.now() + 5000));
+    };
+    try {
+      const out = io(dir);
+      expect(await run(['fmt', '--write', 'a.pneu'], out)).toBe(2);
+      expect(out.err()).toMatch(/changed on disk while being formatted; left as it is/);
+    } finally {
+      fmtHooks.beforeRename = undefined;
+    }
+    expect(readFileSync(file, 'utf8')).toBe(concurrent);
+    expect(readdirSync(dir)).toEqual(['a.pneu']);
+  });
+
+  it('leaves the original intact when the write is interrupted before the rename', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'pneumark-fmt-'));
+    const file = join(dir, 'a.pneu');
+    writeFileSync(file, messy);
+    fmtHooks.beforeRename = () => {
+      throw new Error('interrupted');
+    };
+    try {
+      const out = io(dir);
+      expect(await run(['fmt', '--write', 'a.pneu'], out)).toBe(2);
+      expect(out.err()).toMatch(/could not be written \(interrupted\); the original is intact/);
+    } finally {
+      fmtHooks.beforeRename = undefined;
+    }
+    expect(readFileSync(file, 'utf8')).toBe(messy);
+    expect(readdirSync(dir)).toEqual(['a.pneu']);
+  });
+
+  it('keeps a byte-order mark and CRLF line ends', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'pneumark-fmt-'));
+    const file = join(dir, 'a.pneu');
+    writeFileSync(file, `\uFEFF${messy.replace(/\n/g, '\r\n')}`);
+    expect(await run(['fmt', '--write', 'a.pneu'], io(dir))).toBe(0);
+    expect(readFileSync(file, 'utf8')).toBe(`\uFEFF${tidy.replace(/\n/g, '\r\n')}`);
+  });
+});
+
+describe('parallel runs', () => {
+  it('give byte-identical output with and without workers (built command)', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'pneumark-par-'));
+    cpSync(join(process.cwd(), 'samples'), join(dir, 'samples'), { recursive: true });
+    for (let i = 0; i < 40; i++) writeFileSync(join(dir, `note-${String(i).padStart(2, '0')}.pneu`), `@ 08:00\nvitals spo2 ${90 + (i % 15)}\nabg 7.40/40/${60 + i}/24.4\n`);
+    const cli = join(process.cwd(), 'dist/cli.js');
+    const runWith = (workers: string, args: string[]) => spawnSync(process.execPath, [cli, ...args], { cwd: dir, encoding: 'utf8', env: { ...process.env, PNEUMARK_WORKERS: workers, NO_COLOR: '1' } });
+    for (const args of [['check', '.'], ['check', '--format', 'json', '.'], ['export', '--format', 'csv', '.']]) {
+      const single = runWith('0', args);
+      const parallel = runWith('2', args);
+      expect(parallel.status, parallel.stderr).toBe(single.status);
+      expect(parallel.stdout).toBe(single.stdout);
+    }
+  });
+});

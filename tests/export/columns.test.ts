@@ -1,0 +1,202 @@
+// The column model of the tabular exports: the pinned list of names, what a cell holds, and the
+// two options (redactProse, shiftDays).
+import { UcumLhcUtils } from '@lhncbc/ucum-lhc';
+import { describe, expect, it } from 'vitest';
+import { exportColumns, findingsByTimepoint, findingsOfTimepoint, RANGE_DERIVED_IDS, timepointRows, unitSlug, type Row } from '../../server/src/core/export';
+import { DERIVED } from '../../server/src/core/derive/registry';
+import { FIELDS } from '../../server/src/core/fields/registry';
+import { fixtureFiles } from '../helpers/expectations';
+import { checked, samples } from './helpers';
+
+const plain = { redactProse: false, shiftDays: 0 } as const;
+/** 1 kPa in mmHg: 1000 Pa ÷ 133.322387415 Pa (NIST SP 811). */
+const MMHG_PER_KPA = 1000 / 133.322387415;
+
+/** Rows of a note by timepoint index. */
+function rowsOf(text: string, options: { redactProse: boolean; shiftDays: number } = plain): Row[] {
+  return timepointRows('note.pneu', checked(text), options);
+}
+
+describe('the column list', () => {
+  it('is pinned: a change to it must show in review', () => {
+    expect(exportColumns().map((c) => c.name)).toEqual([
+      'file', 'timepoint', 'label', 'day', 'minutes', 'offset_minutes',
+      'age_y', 'sex', 'height_cm', 'weight_kg', 'altitude_m', 'barometric_mmHg', 'gas_unit',
+      'hr_per_min', 'rr_per_min', 'spo2_pct', 'temp_C', 'bp_systolic_mmHg', 'bp_diastolic_mmHg', 'etco2_mmHg', 'cardiac_output_L_min',
+      'device', 'o2_flow_L_min', 'fio2_fraction', 'ipap_cmH2O', 'epap_cmH2O', 'cpap_level_cmH2O',
+      'mode', 'vt_mL', 'vent_rate_per_min', 'peep_cmH2O', 'plateau_cmH2O', 'peak_cmH2O', 'insp_flow_L_min', 'mean_airway_pressure_cmH2O', 'pressure_support_cmH2O', 'minute_volume_L_min',
+      'ph_pH', 'paco2_mmHg', 'pao2_mmHg', 'hco3_mmol_L', 'base_excess_mmol_L', 'sao2_pct',
+      'ph_venous_pH', 'pvco2_mmHg', 'pvo2_mmHg', 'hco3_venous_mmol_L', 'svo2_pct',
+      'lactate_mmol_L', 'hb_g_dL', 'na_mmol_L', 'k_mmol_L', 'cl_mmol_L', 'hco3_serum_mmol_L', 'albumin_g_dL', 'glucose_mmol_L',
+      'barometric_derived_mmHg', 'pio2_mmHg', 'fio2_estimated', 'pao2_alveolar_mmHg', 'aa_gradient_mmHg', 'aa_gradient_upper_normal_mmHg',
+      'a_to_A_ratio', 'pf_ratio', 'pf_ratio_altitude_adjusted_mmHg', 'sf_ratio', 'rox_index', 'oxygenation_index', 'oxygen_saturation_index',
+      'hco3_calculated_mmol_L', 'hco3_gap_mmol_L', 'anion_gap_mmol_L', 'anion_gap_albumin_corrected_mmol_L', 'delta_ratio',
+      'paco2_expected_low_mmHg', 'paco2_expected_high_mmHg',
+      'hco3_expected_acute_low_mmol_L', 'hco3_expected_acute_high_mmol_L', 'hco3_expected_chronic_low_mmol_L', 'hco3_expected_chronic_high_mmol_L',
+      'minute_ventilation_L_min', 'predicted_body_weight_kg', 'vt_per_kg_pbw_mL_kg', 'driving_pressure_cmH2O',
+      'compliance_static_mL_cmH2O', 'compliance_dynamic_mL_cmH2O', 'airway_resistance_cmH2O_L_s', 'mechanical_power_J_min', 'ventilatory_ratio',
+      'cao2_mL_dL', 'do2_mL_min',
+      'carried_fields', 'findings_errors', 'findings_warnings', 'findings_information',
+    ]);
+  });
+
+  it('has unique names made of letters, digits and underscores', () => {
+    const names = exportColumns().map((c) => c.name);
+    expect(new Set(names).size).toBe(names.length);
+    for (const n of names) expect(n).toMatch(/^[a-z][A-Za-z0-9]*(_[A-Za-z0-9]+)*$/);
+    expect(names).not.toContain('findings'); // reserved for the JSON Lines findings list
+  });
+
+  it('covers every field and every derived value of the registries', () => {
+    const sources = new Set(exportColumns().map((c) => c.source));
+    for (const f of FIELDS) expect(sources, f.id).toContain(f.id);
+    for (const d of DERIVED) expect(sources, d.id).toContain(d.id);
+  });
+
+  it('gives every column a description, and a UCUM code that a UCUM library reads', () => {
+    const ucum = UcumLhcUtils.getInstance();
+    for (const c of exportColumns()) {
+      expect(c.description.length, c.name).toBeGreaterThan(10);
+      if (c.type === 'number' && c.kind !== 'summary' && c.name !== 'timepoint' && c.name !== 'day') expect(c.ucum, c.name).not.toBeNull();
+      if (c.ucum !== null && !c.ucum.startsWith('[pH]')) {
+        expect(ucum.convertUnitTo(c.ucum, 1, c.ucum).status, `${c.name}: ${c.ucum}`).toBe('succeeded');
+      }
+    }
+  });
+});
+
+describe('unit slugs', () => {
+  it.each([
+    ['mmHg', 'mmHg'], ['L/min', 'L_min'], ['/min', 'per_min'], ['%sat', 'pct'], ['%', 'pct'], ['cmH2O/L/s', 'cmH2O_L_s'],
+    ['mL/kg', 'mL_kg'], ['g/dL', 'g_dL'], ['mmol/L', 'mmol_L'], ['ph', 'pH'], ['fraction', 'fraction'], ['C', 'C'], ['', ''],
+  ])('%s → %s', (unit, slug) => {
+    expect(unitSlug(unit)).toBe(slug);
+  });
+});
+
+describe('expected ranges', () => {
+  it('are exactly the derived values that come with a range, in the samples and fixtures', () => {
+    const withRange = new Set<string>();
+    const without = new Set<string>();
+    for (const { text } of fixtureFiles('tests/fixtures', 'samples')) {
+      for (const d of checked(text).analysis.derivations.flatMap((x) => x.derived)) (d.range ? withRange : without).add(d.id);
+    }
+    expect([...withRange].sort()).toEqual([...RANGE_DERIVED_IDS].sort());
+    for (const id of RANGE_DERIVED_IDS) expect(without.has(id), id).toBe(false);
+  });
+});
+
+describe('cells', () => {
+  const note = [
+    'patient age 60 y, sex male, height 180 cm',
+    'units gas kPa',
+    '@ day 1 08:00  first look',
+    'vent mode VC, vt 0.45 L, rate 18, peep 10, fio2 50 %, plateau 25',
+    'vitals hr 90, temp 100.4 F, bp 120/70, spo2 104',
+    'abg 7.30/6.0/9.0/22',
+    '@ +90m  later',
+    'abg po2 12',
+    '@ day 3  no clock',
+    'vitals hr 80',
+  ].join('\n');
+  const rows = rowsOf(note);
+
+  it('hold values in force in the canonical unit, unrounded', () => {
+    const [first] = rows;
+    expect(first?.vt_mL).toBe(450);
+    expect(first?.fio2_fraction).toBe(0.5);
+    expect(first?.temp_C).toBeCloseTo(38, 12);
+    expect(first?.paco2_mmHg).toBeCloseTo(6.0 * MMHG_PER_KPA, 9);
+    expect(first?.paco2_mmHg).not.toBe(45); // not rounded
+    expect(first?.bp_systolic_mmHg).toBe(120);
+    expect(first?.bp_diastolic_mmHg).toBe(70);
+    expect(first?.mode).toBe('VC');
+    expect(first?.sex).toBe('male');
+    expect(first?.gas_unit).toBe('kPa');
+    expect(first?.age_y).toBe(60);
+  });
+
+  it('name the gas unit bare pressures were read in, from the note or the setting', () => {
+    expect(rows.map((r) => r.gas_unit)).toEqual(['kPa', 'kPa', 'kPa']);
+    expect(rowsOf('@ day 1 08:00\nabg po2 80\n@ +1h\nunits gas kPa\nabg po2 10').map((r) => r.gas_unit)).toEqual(['mmHg', 'kPa']);
+  });
+
+  it('leave out a value Pneumark does not use (SpO2 104 % is impossible)', () => {
+    expect(rows[0]?.spo2_pct).toBeNull();
+    expect(rows[0]?.findings_errors).toBeGreaterThan(0);
+  });
+
+  it('carry settings forward and name them in carried_fields', () => {
+    const later = rows[1];
+    expect(later?.peep_cmH2O).toBe(10);
+    expect(later?.hr_per_min).toBeNull(); // measurements do not carry
+    expect(later?.carried_fields).toBe('fio2;mode;vt;vent_rate;peep');
+    expect(rows[0]?.carried_fields).toBe('');
+  });
+
+  it('give time since day 1 00:00 and since the first known time', () => {
+    // `@ day 3` without a clock is 00:00 of day 3 (the timeline's rule).
+    expect(rows.map((r) => [r.day, r.minutes, r.offset_minutes])).toEqual([[1, 480, 0], [1, 570, 90], [3, 2880, 2400]]);
+  });
+
+  it('hold derived values at full precision, ranges as two ends, never NaN', () => {
+    const first = rows[0]!;
+    expect(first.pf_ratio).toBeCloseTo((9.0 * MMHG_PER_KPA) / 0.5, 9);
+    expect(typeof first.hco3_expected_acute_low_mmol_L).toBe('number');
+    expect(first.hco3_expected_acute_low_mmol_L as number).toBeLessThan(first.hco3_expected_acute_high_mmol_L as number);
+    for (const row of rows) for (const [name, v] of Object.entries(row)) if (typeof v === 'number') expect(Number.isFinite(v), name).toBe(true);
+  });
+
+  it('have every column in every row, in column order', () => {
+    for (const row of rows) expect(Object.keys(row)).toEqual(exportColumns().map((c) => c.name));
+  });
+
+  it('findings by timepoint in one pass agree with the per-timepoint filter, on every fixture', () => {
+    for (const { path, text } of fixtureFiles('tests/fixtures', 'samples')) {
+      const result = checked(text);
+      const fast = findingsByTimepoint(result);
+      expect(fast, path).toEqual(result.analysis.timeline.timepoints.map((tp) => findingsOfTimepoint(result, tp)));
+    }
+  });
+
+  it('count findings of the timepoint lines only', () => {
+    const s = samples().find((x) => x.name === 'icu-ventilated-lung-injury')!;
+    const r = timepointRows(s.path, s.result, plain);
+    expect(r.map((x) => [x.findings_errors, x.findings_warnings, x.findings_information])).toEqual([[0, 1, 3], [0, 0, 3], [0, 0, 3], [0, 0, 2]]);
+  });
+});
+
+describe('options', () => {
+  const note = '@ day 1 23:30  Mrs Example, bed 4\nvitals hr 90\n@ +1h\nvitals hr 80';
+
+  it('redactProse empties the label and nothing else', () => {
+    const open = rowsOf(note);
+    const redacted = rowsOf(note, { redactProse: true, shiftDays: 0 });
+    expect(open[0]?.label).toBe('Mrs Example, bed 4');
+    expect(redacted.map((r) => r.label)).toEqual([null, null]);
+    expect(redacted.map((r) => ({ ...r, label: 'x' }))).toEqual(open.map((r) => ({ ...r, label: 'x' })));
+  });
+
+  it('shiftDays moves day and minutes by whole days and keeps offsets', () => {
+    const open = rowsOf(note);
+    const shifted = rowsOf(note, { redactProse: false, shiftDays: 100 });
+    expect(shifted.map((r) => [r.day, r.minutes, r.offset_minutes])).toEqual([[101, 100 * 1440 + 1410, 0], [102, 100 * 1440 + 1470, 60]]);
+    expect(open.map((r) => [r.day, r.minutes])).toEqual([[1, 1410], [2, 1470]]);
+    const back = rowsOf(note, { redactProse: false, shiftDays: -1 });
+    expect(back.map((r) => [r.day, r.minutes])).toEqual([[0, 1410 - 1440], [1, 1470 - 1440]]);
+  });
+
+  it('shiftDays must be a whole number', () => {
+    expect(() => rowsOf(note, { redactProse: false, shiftDays: 0.5 })).toThrow(RangeError);
+    expect(() => rowsOf(note, { redactProse: false, shiftDays: Number.NaN })).toThrow(RangeError);
+  });
+
+  it('label holds only what is written after the time (not the time, not `start`)', () => {
+    expect(rowsOf('@ day 1 08:00  first look\nvitals hr 90\n@ +1h\nvitals hr 80').map((r) => r.label)).toEqual(['first look', null]);
+    expect(rowsOf('vitals hr 90\n@ +1h  later\nvitals hr 80').map((r) => r.label)).toEqual([null, 'later']);
+  });
+
+  it('a note with no timepoint has no rows', () => {
+    expect(rowsOf('patient age 40 y\n')).toEqual([]);
+  });
+});

@@ -1,0 +1,213 @@
+// Both ways: invented identifiers that must raise exactly their codes (true positives), and
+// ordinary clinical phrasing that must raise nothing (true negatives). Every person and number
+// here is made up: Jane Roe / John Doe, 555 and Ofcom drama numbers (07700 900xxx, 020 7946 0xxx),
+// the NHS test number 943 476 5919, example.org addresses.
+import { describe, expect, it } from 'vitest';
+import { scan } from '../../server/src/core/privacy/scan';
+import { hitsInProse, type PrivacyHit } from './helpers';
+
+const NAME = 'PN501';
+const BIRTH = 'PN502';
+const DATE = 'PN503';
+const PHONE = 'PN504';
+const EMAIL = 'PN505';
+const RECORD = 'PN506';
+const POSTAL = 'PN507';
+
+const hit = (code: string, text: string): PrivacyHit => ({ code, text });
+
+/** Phrase → the findings it must raise, in order (code and the exact text covered). */
+const TRUE_POSITIVES: readonly (readonly [string, readonly PrivacyHit[]])[] = [
+  // names after a cue
+  ['name: Jane Roe', [hit(NAME, 'Jane Roe')]],
+  ['Mr Smith reviewed at the bedside', [hit(NAME, 'Smith')]],
+  ['seen by Dr Patel, plan NIV', [hit(NAME, 'Patel')]],
+  ['Dr. O\'Brien aware', [hit(NAME, 'O\'Brien')]],
+  ['Mrs J. Roe on the ward', [hit(NAME, 'J. Roe')]],
+  ['Miss Jane Roe transferred', [hit(NAME, 'Jane Roe')]],
+  ['Prof Smith-Jones consulted', [hit(NAME, 'Smith-Jones')]],
+  ['patient John Doe, 64 y', [hit(NAME, 'John Doe')]],
+  ['next of kin Jane Roe informed', [hit(NAME, 'Jane Roe')]],
+  ['discussed with John Doe (son)', [hit(NAME, 'John Doe')]],
+  ['wife Mary at the bedside', [hit(NAME, 'Mary')]],
+  ['known as Johnny on the ward', [hit(NAME, 'Johnny')]],
+  // dates of birth
+  ['DOB 12/03/1961', [hit(BIRTH, '12/03/1961')]],
+  ['born 1961-03-12', [hit(BIRTH, '1961-03-12')]],
+  ['date of birth 4 March 1961', [hit(BIRTH, '4 March 1961')]],
+  ['D.O.B. 12/03/61', [hit(BIRTH, '12/03/61')]],
+  ['born in 1961, lifelong smoker', [hit(BIRTH, '1961')]],
+  // calendar dates
+  ['admitted 2026-03-04 with pneumonia', [hit(DATE, '2026-03-04')]],
+  ['gas repeated on 04/03/2026', [hit(DATE, '04/03/2026')]],
+  ['seen in clinic on 4 March 2026', [hit(DATE, '4 March 2026')]],
+  ['symptoms since March 4, 2026', [hit(DATE, 'March 4, 2026')]],
+  ['extubated on the 3rd of March', [hit(DATE, '3rd of March')]],
+  ['last spirometry 12.03.2025', [hit(DATE, '12.03.2025')]],
+  ['CT 4-Mar-2026 showed consolidation', [hit(DATE, '4-Mar-2026')]],
+  ['home oxygen since Dec 2024', [hit(DATE, 'Dec 2024')]],
+  ['sample taken 2026-03-04T08:00', [hit(DATE, '2026-03-04')]],
+  // phone numbers
+  ['daughter on 07700 900123', [hit(PHONE, '07700 900123')]],
+  ['tel +44 20 7946 0958', [hit(PHONE, '+44 20 7946 0958')]],
+  ['GP surgery (555) 010-1234', [hit(PHONE, '(555) 010-1234')]],
+  ['call back 555-010-1234', [hit(PHONE, '555-010-1234')]],
+  ['mobile 555 010 1234', [hit(PHONE, '555 010 1234')]],
+  ['ward phone 020 7946 0000', [hit(PHONE, '020 7946 0000')]],
+  ['son 07700900123 if worse', [hit(PHONE, '07700900123')]],
+  ['ring 07700 900123 in the evening', [hit(PHONE, '07700 900123')]],
+  ['+1 555 010 1234 after 18:00', [hit(PHONE, '+1 555 010 1234')]],
+  // e-mail addresses
+  ['results to jane.roe@example.org', [hit(EMAIL, 'jane.roe@example.org')]],
+  ['copy j.doe+icu@hospital.example.org.', [hit(EMAIL, 'j.doe+icu@hospital.example.org')]],
+  // record numbers
+  ['MRN 1234567', [hit(RECORD, '1234567')]],
+  ['NHS 943 476 5919', [hit(RECORD, '943 476 5919')]],
+  ['NHS no. 943-476-5919', [hit(RECORD, '943-476-5919')]],
+  ['943 476 5919 on the wristband', [hit(RECORD, '943 476 5919')]],
+  ['hospital number: AB123456', [hit(RECORD, 'AB123456')]],
+  ['ref K7654321 on the request', [hit(RECORD, 'K7654321')]],
+  ['SSN 123-45-6789', [hit(RECORD, '123-45-6789')]],
+  ['sticker 87654321 on the sample', [hit(RECORD, '87654321')]],
+  // postal codes
+  ['lives near SW1A 1AA', [hit(POSTAL, 'SW1A 1AA')]],
+  ['moved from Springfield, IL 62704', [hit(POSTAL, '62704')]],
+  ['lives in Boston, MA 02118', [hit(POSTAL, '02118')]],
+  ['zip 90210-1234', [hit(POSTAL, '90210-1234')]],
+  ['postcode m1 1ae', [hit(POSTAL, 'm1 1ae')]],
+  // several at once
+  ['Mr Smith, DOB 12/03/1961, MRN 1234567', [hit(NAME, 'Smith'), hit(BIRTH, '12/03/1961'), hit(RECORD, '1234567')]],
+  ['NOK John Doe 07700 900123, john.doe@example.org', [hit(NAME, 'John Doe'), hit(PHONE, '07700 900123'), hit(EMAIL, 'john.doe@example.org')]],
+];
+
+/** Ordinary clinical phrasing that must raise no privacy finding. */
+const TRUE_NEGATIVES: readonly string[] = [
+  // numbers, units and gases
+  'PaO2 71 mmHg on FiO2 0.4',
+  'gas 7.28/56/71/26 on arrival',
+  'bp 120/80, hr 118, rr 26',
+  'cannula 4 L/min, then venturi 28 %',
+  'PEEP 10 cmH2O, Pplat 28, Ppeak 34',
+  'GCS 14, Na 139, K 4.1, Cl 101',
+  'P/F 150, S/F 210, ROX 4.2 at 12 h',
+  'SpO2 target 88-92 %',
+  'Hb 112 g/L, WCC 14.2, CRP 180, platelets 150000',
+  'heparin 5000 units, fluids 250 500 1000 mL',
+  'fluid balance +1500 mL over 24 h',
+  'sats 88 90 92 94 96 over the hour',
+  'peep trial 5 8 10 12 14 16',
+  'FEV1 1.2 L (45 % predicted), FVC 2.1 L',
+  'ECG sinus tachycardia 118 bpm, QTc 450 ms',
+  // times, days and counts
+  'review at 07:40, again at +2h30',
+  'day 2 of admission, 3 times overnight',
+  'obs at 0600 1000 1400',
+  'nebs x4, x2 doses 12 hrs apart',
+  '1/7 history of cough, 3/52 of breathlessness',
+  'I:E 1:2, ratio 1:2.5',
+  'age 64 y, weight 71 kg, BMI 26.7',
+  // doses, drugs and devices
+  'salbutamol 5 mg nebs x4, ipratropium 500 mcg',
+  '2.5 mg nebs back to back',
+  'Ventolin and Atrovent via Hudson mask',
+  'Optiflow 50 L/min, FiO2 0.6, then Airvo',
+  'MS contin 10 mg at night',
+  // capitalised clinical words, cue words without names
+  'Crackles at both bases.',
+  'Patient settled overnight',
+  'Patient Settled Overnight',
+  'Dr review requested',
+  'Dr on call aware',
+  'Mr review tomorrow morning',
+  'Patient Controlled Analgesia running',
+  'Patient Group Direction followed',
+  'called Outreach at 09:15',
+  'Called ICU SpR',
+  'discussed with Respiratory Consultant',
+  'seen by ICU registrar, for HDU',
+  'wife at the bedside, son informed',
+  'drug name Ventolin',
+  'MR on echo, MS excluded',
+  // eponyms and scores
+  'Glasgow coma scale 14',
+  'Berlin definition met, Murray score 2.5',
+  'Winters formula 1.5 x 14 + 8 = 29',
+  'Henderson-Hasselbalch check ok',
+  'Curb-65 3, NEWS2 7, qSOFA 2',
+  'GCS E3 V4 M6 = 13',
+  'APACHE II 24, SOFA 9',
+  // codes and look-alikes
+  'LOINC 2744-1 and 2019-8',
+  'ISO 80601-2-12 ventilator',
+  'T2 RF, 4HR obs',
+  'V1 2MM ST elevation',
+  'CO2 retention, H1N1 negative, COVID-19 PCR positive',
+  'bed 12, bay 3, ward 7B, ext 4455, bleep 2345',
+  // months as words and look-alikes
+  'in March the symptoms began',
+  'may need NIV',
+  'May need NIV overnight',
+  'marching band, augmented flow',
+  'plan: wean FiO2 to 0.35, ABG in 1 h',
+  'born at term, no neonatal problems',
+  'x@y not an address, @ day 2',
+  'Aug 1.2 g IV tds, then Aug 1 g',
+  'May 5 mg be enough?',
+  'Head CT 12345 slices',
+  'partner Present, wife Updated by phone',
+];
+
+describe('privacy detectors: true positives', () => {
+  it(`has a table of at least 25 true positives (${TRUE_POSITIVES.length})`, () => {
+    expect(TRUE_POSITIVES.length).toBeGreaterThanOrEqual(25);
+  });
+  for (const [phrase, expected] of TRUE_POSITIVES) {
+    it(`flags: ${phrase}`, () => {
+      expect(hitsInProse(phrase)).toEqual(expected);
+    });
+  }
+});
+
+describe('privacy detectors: true negatives', () => {
+  it(`has a table of at least 40 true negatives (${TRUE_NEGATIVES.length})`, () => {
+    expect(TRUE_NEGATIVES.length).toBeGreaterThanOrEqual(40);
+  });
+  for (const phrase of TRUE_NEGATIVES) {
+    it(`stays silent: ${phrase}`, () => {
+      expect(hitsInProse(phrase)).toEqual([]);
+      expect(scan(phrase)).toEqual([]);
+    });
+  }
+});
+
+describe('scan', () => {
+  it('returns kinds, spans in the scanned text and the cue', () => {
+    const text = 'Dr Patel, DOB 12/03/1961';
+    expect(scan(text)).toEqual([
+      { kind: 'name', span: { start: 3, end: 8 }, text: 'Patel', cue: 'Dr' },
+      { kind: 'birth-date', span: { start: 14, end: 24 }, text: '12/03/1961', cue: 'DOB' },
+    ]);
+  });
+
+  it('keeps one match where detectors overlap (the longer, then the more specific)', () => {
+    // `20260304` is a compact date and a long run of digits: the date wins.
+    expect(scan('sample 20260304').map((m) => m.kind)).toEqual(['calendar-date']);
+    // `DOB 1961-03-12`: a birth date, not a calendar date.
+    expect(scan('DOB 1961-03-12').map((m) => m.kind)).toEqual(['birth-date']);
+  });
+
+  it('answers quickly on long adversarial lines (a smoke test of linear scanning)', () => {
+    const n = 5000;
+    const inputs = [
+      '1 '.repeat(n), '1-'.repeat(n), '1.'.repeat(n), '(1'.repeat(n), '+1 '.repeat(n), 'a@'.repeat(n), '@a.'.repeat(n),
+      'Dr '.repeat(n), 'Mr Ab '.repeat(n), 'name: '.repeat(n), 'MRN 1 '.repeat(n), '12/'.repeat(n), '4 March '.repeat(n),
+      'SW1A '.repeat(n), 'DOB '.repeat(n), 'a'.repeat(n * 2), '9'.repeat(n * 2), 'x.'.repeat(n) + '@' + 'y.'.repeat(n),
+    ];
+    for (const input of inputs) {
+      const t0 = performance.now();
+      scan(input);
+      // Generous: a 10 000-character line scans in tens of milliseconds; backtracking would take minutes.
+      expect(performance.now() - t0, JSON.stringify(input.slice(0, 12))).toBeLessThan(2000);
+    }
+  });
+});
