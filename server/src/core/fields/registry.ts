@@ -131,15 +131,20 @@ export const FIELDS: readonly FieldDef[] = [
   { id: 'glucose', label: 'Glucose', description: 'Blood glucose.', sections: ['labs', 'abg', 'vbg'], aliases: ['glucose', 'glu'], kind: 'number', dimension: 'substance-concentration', unit: 'mmol/L', units: ['mmol/L'], hard: { min: 0.2, max: 150 }, soft: { min: 1.5, max: 40 }, boundsSource: CP, loinc: { code: '2345-7', display: 'Glucose [Mass/volume] in Serum or Plasma', fromMemory: true }, decimals: 1 },
 ];
 
-const bySectionKey = new Map<string, FieldDef>();
+const bySectionKey = new Map<SectionId, Map<string, FieldDef>>();
 const byId = new Map<string, FieldDef>();
 for (const f of FIELDS) {
   byId.set(f.id, f);
-  for (const s of f.sections) for (const a of f.aliases) if (!bySectionKey.has(`${s}:${a}`)) bySectionKey.set(`${s}:${a}`, f);
+  for (const s of f.sections) {
+    const keys = bySectionKey.get(s) ?? new Map<string, FieldDef>();
+    bySectionKey.set(s, keys);
+    for (const a of f.aliases) if (!keys.has(a)) keys.set(a, f);
+  }
 }
 
 export function fieldFor(section: SectionId, key: string): FieldDef | undefined {
-  return bySectionKey.get(`${section}:${key.toLowerCase()}`);
+  const keys = bySectionKey.get(section);
+  return keys?.get(key) ?? keys?.get(key.toLowerCase());
 }
 
 export function fieldById(id: string): FieldDef | undefined {

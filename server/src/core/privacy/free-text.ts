@@ -51,6 +51,24 @@ function maskReadings(body: string, node: Extract<LineNode, { kind: 'section' }>
     if (known) masked.push(item.span);
   }
   if (masked.length === 0) return body;
+  // Common case: nothing but the section word, readings, blanks and commas. Nothing to scan.
+  let free = false;
+  let at0 = node.sectionToken.span.end;
+  for (const span of masked) {
+    for (let i = at0; i < span.start && i < body.length; i++) {
+      const c = body.charCodeAt(i);
+      if (c !== 0x20 && c !== 0x09 && c !== 0x2c) { free = true; break; }
+    }
+    if (free) break;
+    at0 = Math.max(at0, span.end);
+  }
+  if (!free) {
+    for (let i = at0; i < body.length; i++) {
+      const c = body.charCodeAt(i);
+      if (c !== 0x20 && c !== 0x09 && c !== 0x2c) { free = true; break; }
+    }
+  }
+  if (!free) return '';
   let out = '';
   let at = 0;
   for (const span of masked) {

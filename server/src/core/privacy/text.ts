@@ -20,7 +20,10 @@ export function isDigitAt(text: string, i: number): boolean {
 
 /** A cased letter (Latin, Greek, Cyrillic, …): it has an upper- and a lower-case form. */
 export function isLetterChar(ch: string): boolean {
-  return ch.length === 1 && ch.toLowerCase() !== ch.toUpperCase();
+  if (ch.length !== 1) return false;
+  const c = ch.charCodeAt(0);
+  if (c < 0x80) return (c >= 0x41 && c <= 0x5a) || (c >= 0x61 && c <= 0x7a); // ASCII without case folding
+  return ch.toLowerCase() !== ch.toUpperCase();
 }
 
 export function isLetterAt(text: string, i: number): boolean {
@@ -28,10 +31,14 @@ export function isLetterAt(text: string, i: number): boolean {
 }
 
 export function isUpperChar(ch: string): boolean {
+  const c = ch.charCodeAt(0);
+  if (ch.length === 1 && c < 0x80) return c >= 0x41 && c <= 0x5a;
   return isLetterChar(ch) && ch === ch.toUpperCase();
 }
 
 export function isLowerChar(ch: string): boolean {
+  const c = ch.charCodeAt(0);
+  if (ch.length === 1 && c < 0x80) return c >= 0x61 && c <= 0x7a;
   return isLetterChar(ch) && ch === ch.toLowerCase();
 }
 

@@ -213,11 +213,31 @@ function disorder(kind: string, direction: string): string {
  * `resp. acidosis, acute`, `met. acidosis, high AG + resp. alkalosis`, `mixed acidosis`.
  * Null when the reading names no disorder.
  */
+/**
+ * Finds "[fully compensated ][acute |chronic ](metabolic|respiratory) (acidosis|alkalosis)" by
+ * plain word search, in the shape of a regex match: [match, compensated?, timing?, kind, direction].
+ */
+function singleDisorder(text: string): (string | undefined)[] | null {
+  const lower = text.toLowerCase();
+  for (const kind of ['metabolic', 'respiratory']) {
+    for (const direction of ['acidosis', 'alkalosis']) {
+      const at = lower.indexOf(`${kind} ${direction}`);
+      if (at < 0) continue;
+      const before = lower.slice(0, at);
+      const timing = before.endsWith('acute ') ? 'acute' : before.endsWith('chronic ') ? 'chronic' : undefined;
+      const rest = timing ? before.slice(0, before.length - timing.length - 1) : before;
+      const compensated = rest.endsWith('fully compensated ') ? 'fully compensated ' : undefined;
+      return [`${kind} ${direction}`, compensated, timing, kind, direction];
+    }
+  }
+  return null;
+}
+
 export function acidBaseLabel(text: string): string | null {
   const first = text.split(';')[0] ?? '';
   let label: string | null = null;
   const mixed = /mixed metabolic and respiratory (acidosis|alkalosis)/i.exec(first);
-  const single = /(fully compensated )?(?:(acute|chronic) )?(metabolic|respiratory) (acidosis|alkalosis)/i.exec(first);
+  const single = singleDisorder(first);
   if (/undetermined/i.test(first)) label = 'acid–base unclear';
   else if (mixed) label = `mixed ${mixed[1]!.toLowerCase()}`;
   else if (single) {
