@@ -45,7 +45,7 @@ describe('edits fired without waiting', () => {
   it('ends with the diagnostics of the newest version', async () => {
     const uri = client.open(join(process.cwd(), 'burst.pneu'), '@ 08:00\nvitals hr 80\n');
     await client.diagnostics(uri, (p) => p.version === 1);
-    for (let v = 2; v <= 40; v++) client.change(uri, `@ 08:00\nvitals hr 80, spo2 ${60 + v}\n`, v);
+    for (let v = 2; v <= 40; v++) client.change(uri, `@ 08:00\nvitals hr 80, spo2 ${61 + v}\n`, v);
     const last = await client.diagnostics(uri, (p) => p.version === 40);
     expect(last.diagnostics.map((d) => d.code)).toEqual(['PN306']);
     const versions = client.published.filter((p) => p.uri === uri).map((p) => p.version ?? 0);
