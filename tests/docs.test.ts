@@ -3,7 +3,8 @@ import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { renderCheckDocs } from '../server/src/core/checks/docs';
 import { CHECKS, docAnchor } from '../server/src/core/checks/registry';
-import { FIELD_TABLE_START, withGeneratedTables } from '../server/src/core/fields/docs';
+import { FIELD_TABLE_START, replaceBetween, withGeneratedTables } from '../server/src/core/fields/docs';
+import { COLUMNS_END, COLUMNS_START, renderColumnTable } from '../server/src/core/export/docs';
 
 describe('check documentation', () => {
   it('is up to date with the registry (run `npm run docs` after changing a check)', () => {
@@ -15,6 +16,12 @@ describe('check documentation', () => {
     expect(doc).toContain(FIELD_TABLE_START);
     expect(doc).toContain('<!-- derived:start');
     expect(withGeneratedTables(doc)).toBe(doc);
+  });
+
+  it('README.md carries the current list of export columns', () => {
+    const doc = readFileSync('README.md', 'utf8');
+    expect(doc).toContain(COLUMNS_START);
+    expect(replaceBetween(doc, COLUMNS_START, COLUMNS_END, renderColumnTable())).toBe(doc);
   });
 
   it('has a section per check at its anchor', () => {

@@ -11,7 +11,8 @@ import { z } from 'zod';
 import { checkNote } from '../core/check-note';
 import { CAUTION, EXIT, HELP, parse, UsageError, validate, type Io } from './args';
 import { renderCheckDocs } from '../core/checks/docs';
-import { withGeneratedTables } from '../core/fields/docs';
+import { replaceBetween, withGeneratedTables } from '../core/fields/docs';
+import { COLUMNS_END, COLUMNS_START, renderColumnTable } from '../core/export/docs';
 import { colourWanted, paint, type Paint } from './colour';
 import { runExport, exportRenderer } from './export-command';
 import { runFmt } from './fmt-command';
@@ -99,12 +100,13 @@ async function check(args: readonly string[], io: Io): Promise<number> {
 }
 
 function docs(args: readonly string[], io: Io): number {
-  const { values } = parse(args, { write: { type: 'string' }, grammar: { type: 'string' } });
+  const { values } = parse(args, { write: { type: 'string' }, grammar: { type: 'string' }, readme: { type: 'string' } });
   if (values.help) { io.stdout.write(`${HELP.docs}\n`); return EXIT.ok; }
   const text = renderCheckDocs();
   if (typeof values.write === 'string') writeFileSync(values.write, text);
   else io.stdout.write(text);
   if (typeof values.grammar === 'string') writeFileSync(values.grammar, withGeneratedTables(readFileSync(values.grammar, 'utf8')));
+  if (typeof values.readme === 'string') writeFileSync(values.readme, replaceBetween(readFileSync(values.readme, 'utf8'), COLUMNS_START, COLUMNS_END, renderColumnTable()));
   return EXIT.ok;
 }
 

@@ -9,14 +9,19 @@ import { shortOf, formatAlternative, formatStated, describeOrigin } from '../cor
 import type { LineNode } from '../core/syntax/tree';
 import type { TimepointDerivation } from '../core/derive/model';
 import type { Finding } from '../core/types';
+import { CHECKS } from '../core/checks/registry';
 import type { Paint } from './colour';
 import { renderDerived } from './render-derived';
+
+const READING_CODES = new Set(CHECKS.filter((c) => c.tags.includes('interpretation')).map((c) => c.code));
 
 export function renderShow(path: string, result: NoteResult, p: Paint): string {
   const { analysis, findings } = result;
   const out: string[] = [];
   const byLine = new Map<number, Finding[]>();
   for (const f of findings) {
+    // Readings are printed once, under their timepoint; only the other findings go under lines.
+    if (READING_CODES.has(f.code)) continue;
     const list = byLine.get(f.range.start.line);
     if (list) list.push(f);
     else byLine.set(f.range.start.line, [f]);
@@ -106,6 +111,6 @@ function summary(c: SeverityCounts, p: Paint): string {
   const parts: string[] = [];
   if (c.error) parts.push(p.red(`${c.error} error${c.error === 1 ? '' : 's'}`));
   if (c.warning) parts.push(p.yellow(`${c.warning} warning${c.warning === 1 ? '' : 's'}`));
-  if (c.information) parts.push(p.blue(`${c.information} note${c.information === 1 ? '' : 's'}`));
+  if (c.information) parts.push(p.blue(`${c.information} reading${c.information === 1 ? '' : 's'}`));
   return parts.length > 0 ? parts.join(', ') : p.green('no findings');
 }

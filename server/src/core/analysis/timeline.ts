@@ -154,6 +154,8 @@ function processBlock(nodes: readonly LineNode[], index: number, endLine: number
   const header: StatedValue[] = [];
   const first = nodes[0];
   const mutable = { ...stateIn };
+  const seenInHeader = new Map<string, StatedValue>();
+  const seenAtTimepoint = new Map<string, StatedValue>();
   let tp: { index: number; line: number | null; label: string; startLine: number; time: TimepointTime; stated: StatedValue[] } | null = null;
   if (first?.kind === 'timepoint') {
     const time = timeOf(first, stateIn.lastTime, index === 0);
@@ -170,7 +172,7 @@ function processBlock(nodes: readonly LineNode[], index: number, endLine: number
     }
     const stated = readLine(node, mutable, settings, issues);
     const target = inHeader ? header : tp!.stated;
-    duplicates(node.section, stated, target, issues);
+    duplicates(node.section, stated, inHeader ? seenInHeader : seenAtTimepoint, issues);
     target.push(...stated);
     apply(node.section, stated, tp ? tp.index : -1, tp ? tp.label : 'header', mutable);
   }
@@ -227,11 +229,18 @@ export function barometricInForce(place: ReadonlyMap<string, { stated: StatedVal
   return null;
 }
 
-/** The same field twice in one section at one timepoint: the later value wins, the earlier is named. */
-function duplicates(section: SectionId, stated: readonly StatedValue[], sameTimepoint: readonly StatedValue[], issues: ReadIssue[]): void {
-  stated.forEach((s, i) => {
-    const earlier = sameTimepoint.find((o) => o.fieldId === s.fieldId && o.section === section) ?? stated.slice(0, i).find((o) => o.fieldId === s.fieldId);
-    if (!earlier) return;
+/**
+ * The same field twice in one section at one timepoint: the later value wins, the first is named.
+ * `seen` holds the first value of each section and field at this timepoint (linear in the items).
+ */
+function duplicates(section: SectionId, stated: readonly StatedValue[], seen: Map<string, StatedValue>, issues: ReadIssue[]): void {
+  for (const s of stated) {
+    const key = `${section}:${s.fieldId}`;
+    const earlier = seen.get(key);
+    if (!earlier) {
+      seen.set(key, s);
+      continue;
+    }
     issues.push({
       check: 'duplicate-key',
       line: s.line,
@@ -240,7 +249,7 @@ function duplicates(section: SectionId, stated: readonly StatedValue[], sameTime
       fixes: [],
       related: [{ line: earlier.line, span: earlier.item.span, message: 'first stated here' }],
     });
-  });
+  }
 }
 
 type MutableState = { -readonly [K in keyof CarryState]: CarryState[K] };
