@@ -15,6 +15,8 @@ export interface FoundConfig {
 
 export class ProjectConfigs {
   private readonly cache = new Map<string, { mtimeMs: number; size: number; config: ParsedConfig }>();
+  /** Folder → where its project file is (null: none above it); cleared by `invalidate`. */
+  private readonly folders = new Map<string, string | null>();
 
   forNote(uri: string): FoundConfig | null {
     if (!uri.startsWith('file:')) return null;
@@ -29,21 +31,33 @@ export class ProjectConfigs {
 
   /** The project file for a note at a file-system path (absolute). */
   forPath(notePath: string): FoundConfig | null {
-    let dir = dirname(notePath);
+    const start = dirname(notePath);
+    const known = this.folders.get(start);
+    if (known !== undefined) {
+      const config = known === null ? null : this.read(known);
+      return config && known ? { path: known, config } : null;
+    }
+    let dir = start;
+    let found: FoundConfig | null = null;
     for (let depth = 0; depth < 64; depth++) {
       const candidate = join(dir, CONFIG_FILE_NAME);
-      const found = this.read(candidate);
-      if (found) return { path: candidate, config: found };
+      const config = this.read(candidate);
+      if (config) {
+        found = { path: candidate, config };
+        break;
+      }
       const parent = dirname(dir);
       if (parent === dir) break;
       dir = parent;
     }
-    return null;
+    this.folders.set(start, found?.path ?? null);
+    return found;
   }
 
   /** Forgets cached files (after a change notification). */
   invalidate(): void {
     this.cache.clear();
+    this.folders.clear();
   }
 
   private read(path: string): ParsedConfig | null {
