@@ -2,7 +2,7 @@
 // Every assertion reads the page itself; screenshots go to test-output/e2e/.
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { goTo, openFile, runCommand, screenshot, setTheme, startWorkbench, type Workbench } from './harness';
+import { focusEditorArea, goTo, openFile, runCommand, screenshot, setTheme, startWorkbench, type Workbench } from './harness';
 
 let wb: Workbench;
 
@@ -27,6 +27,13 @@ describe('Pneumark in VS Code', () => {
     await expect.poll(async () => (await lines.textContent()) ?? '', { timeout: 60000 }).toMatch(/P\/F\s93/);
     expect(await lines.textContent()).toMatch(/ΔP\s19/);
     await screenshot(wb.page, '02-inlay-hints');
+  });
+
+  it('shows the key figures of the timepoint under the cursor in the status bar', async () => {
+    await goTo(wb.page, 9, 1);
+    const item = wb.page.locator('.statusbar-item', { hasText: 'P/F 93' });
+    await item.first().waitFor({ timeout: 30000 });
+    expect(await item.first().textContent()).toMatch(/pH 7\.29/);
   });
 
   it('lists findings in the Problems panel with our codes', async () => {
@@ -59,6 +66,19 @@ describe('Pneumark in VS Code', () => {
     await expect.poll(async () => (await lines.textContent()) ?? '', { timeout: 20000 }).toMatch(/ph\s7\.35,\spco2\s41/);
   });
 
+  it('restarts the language server on command and keeps serving', async () => {
+    await runCommand(wb.page, 'Pneumark: Restart Language Server');
+    // The broken note is the active editor: a line typed after the restart is checked by the new server.
+    await goTo(wb.page, 3, 1);
+    await wb.page.keyboard.type('vitlz hr 80\n');
+    const rows = wb.page.locator('.markers-panel .monaco-list-row');
+    await wb.page.keyboard.press('Control+Shift+M');
+    await expect.poll(async () => (await rows.allTextContents()).join('\n'), { timeout: 60000 }).toMatch(/`vitlz` is not a section/);
+    await screenshot(wb.page, '07-after-restart');
+    await focusEditorArea(wb.page);
+    await wb.page.keyboard.press('Control+Z');
+  });
+
   it('opens the trend view and draws the charts', async () => {
     await openFile(wb.page, 'icu-ventilated-lung-injury.pneu');
     await runCommand(wb.page, 'Pneumark: Show Trends');
@@ -80,7 +100,7 @@ describe('Pneumark in VS Code', () => {
   });
 
   it('keeps the trend view readable in light and high-contrast themes', async () => {
-    for (const [theme, name] of [['Light Modern', '07-trends-light'], ['Dark High Contrast', '08-trends-high-contrast']] as const) {
+    for (const [theme, name] of [['Light Modern', '08-trends-light'], ['Dark High Contrast', '09-trends-high-contrast']] as const) {
       await setTheme(wb.page, theme);
       await expect.poll(async () => {
         let canvases = 0;
