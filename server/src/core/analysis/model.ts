@@ -2,7 +2,6 @@
  * What the analysis makes of a note: timepoints with the values in force at each one,
  * where every value came from, and (from the physiology layer) derived values.
  */
-import type { Range } from '../types';
 import type { SectionId } from '../fields/sections';
 import type { ItemNode, Span } from '../syntax/tree';
 
@@ -69,9 +68,4 @@ export interface Timepoint {
   readonly values: ReadonlyMap<string, InputValue>;
   /** Barometric pressure in force (stated, or from altitude), mmHg; null when no place is given. */
   readonly barometricMmhg: number | null;
-}
-
-export function originRange(origin: Origin): Range | null {
-  if (origin.kind === 'default') return null;
-  return { start: { line: origin.line, character: origin.span.start }, end: { line: origin.line, character: origin.span.end } };
 }
