@@ -39,10 +39,11 @@ function privacyCheck(code: string, alias: string, kind: PrivacyKind, title: str
     code, alias, title, severity: 'warning', tags: ['privacy'], doc, source: SOURCE,
     run(ctx) {
       if (!ctx.settings.privacyChecks) return;
+      // Timepoints cover every line from the first one's start to the end of the note: the
+      // note-scoped part is the header before it (the timepoints are checked one by one below).
       const lines = ctx.analysis.tree.lines;
-      const covered = new Array<boolean>(lines.length).fill(false);
-      for (const tp of ctx.analysis.timeline.timepoints) for (let l = tp.startLine; l <= tp.endLine && l < lines.length; l++) covered[l] = true;
-      reportLines(ctx, lines.filter((node) => !covered[node.line]));
+      const first = ctx.analysis.timeline.timepoints[0];
+      reportLines(ctx, first ? lines.slice(0, first.startLine) : lines);
     },
     runTimepoint(ctx) {
       if (!ctx.settings.privacyChecks) return;
