@@ -8,6 +8,7 @@ import { fieldById } from '../fields/registry';
 import { displayUnit } from '../analysis/read-value';
 import type { Settings } from '../settings';
 import { formatNumber } from '../util/format';
+import { describeOrigin } from '../present';
 import type { DerivedCategory, DerivedValue, InputOrigin, MissingValue, NotApplicable, Term } from './model';
 
 export type { Term } from './model';
@@ -258,11 +259,5 @@ export function substitute(template: string, terms: readonly Term[]): string {
 }
 
 export function describeInputOrigin(origin: InputOrigin): string {
-  switch (origin.kind) {
-    case 'derived': return `computed (${origin.id})`;
-    case 'here': return `line ${origin.line + 1}`;
-    case 'header': return `header, line ${origin.line + 1}`;
-    case 'carried': return `carried from ${origin.timepointLabel || `timepoint ${origin.timepoint + 1}`}, line ${origin.line + 1}`;
-    case 'default': return origin.description;
-  }
+  return origin.kind === 'derived' ? `computed (${origin.id})` : describeOrigin(origin);
 }

@@ -18,7 +18,8 @@ import { allStated, isValidPosition, itemAt, lineAt } from './locate';
 import { parseLine } from '../syntax/parser';
 import type { LineNode } from '../syntax/tree';
 import { applyEdits, editsOverlap } from './text-edits';
-import { convertNoteUnits, itemConversionEdits, numberIn, otherUnit, shorthandConversionEdits, shorthandPressures, writtenUnit, type GasUnit } from './unit-conversion';
+import { displayUnit } from '../analysis/read-value';
+import { convertNoteUnits, itemConversionEdits, numberIn, otherUnit, shorthandConversionEdits, shorthandPressures, type GasUnit } from './unit-conversion';
 import type { ActionInfo } from './types';
 
 export { convertNoteUnits } from './unit-conversion';
@@ -91,13 +92,13 @@ function conversionAction(s: StatedValue): ActionInfo[] {
   const edits = itemConversionEdits(s.line, s, to);
   const number = numberIn(s, field, to);
   if (!edits || number === null) return [];
-  const shown = to === 'fraction' ? `${number} (a fraction)` : `${number} ${writtenUnit(to)}`;
-  return [{ title: `Write ${keyOf(s)} in ${to === 'fraction' ? 'a fraction' : writtenUnit(to)}: ${shown}`, kind: 'refactor.rewrite', edits }];
+  const shown = to === 'fraction' ? `${number} (a fraction)` : `${number} ${displayUnit(to)}`;
+  return [{ title: `Write ${keyOf(s)} in ${to === 'fraction' ? 'a fraction' : displayUnit(to)}: ${shown}`, kind: 'refactor.rewrite', edits }];
 }
 
 function addUnitAction(s: StatedValue): ActionInfo[] {
   if (!s.unitImplied || !s.readUnit || s.unitDoubt || s.readUnit === 'fraction' || s.readUnit === 'ph' || !s.item.value) return [];
-  const unit = writtenUnit(s.readUnit);
+  const unit = displayUnit(s.readUnit);
   const end = s.item.value.span.end;
   return [{
     title: `Write the unit it was read in: ${keyOf(s)} ${s.item.value.text} ${unit}`,

@@ -35,11 +35,6 @@ export function otherUnit(s: StatedValue): string | null {
   return null;
 }
 
-/** How a unit id is written in a note. */
-export function writtenUnit(id: string): string {
-  return id === '%sat' ? '%' : displayUnit(id);
-}
-
 /** A canonical value written as a number in `to`, with that unit's usual decimals. */
 export function numberIn(s: StatedValue, field: FieldDef, to: string): string | null {
   const canonical = unitById(s.unit ?? '');
@@ -71,9 +66,9 @@ export function itemConversionEdits(line: number, s: StatedValue, to: string): T
   if (to === 'fraction') {
     if (item.unit) edits.push({ range: lineRange(line, value.span.end, item.unit.span.end), newText: '' });
   } else if (item.unit) {
-    edits.push({ range: lineRange(line, item.unit.span.start, item.unit.span.end), newText: writtenUnit(to) });
+    edits.push({ range: lineRange(line, item.unit.span.start, item.unit.span.end), newText: displayUnit(to) });
   } else {
-    edits.push({ range: lineRange(line, value.span.end, value.span.end), newText: ` ${writtenUnit(to)}` });
+    edits.push({ range: lineRange(line, value.span.end, value.span.end), newText: ` ${displayUnit(to)}` });
   }
   return edits;
 }
@@ -209,7 +204,7 @@ function ordinary(s: StatedValue, field: FieldDef): boolean {
 
 /** Edits that keep the numbers as read and write their unit when the reading would change. */
 function keepAsRead(line: number, at: number, hasUnit: boolean, readUnit: string, bareAfter: GasUnit | null): TextEdit[] {
-  return hasUnit || bareAfter === readUnit ? [] : [{ range: lineRange(line, at, at), newText: ` ${writtenUnit(readUnit)}` }];
+  return hasUnit || bareAfter === readUnit ? [] : [{ range: lineRange(line, at, at), newText: ` ${displayUnit(readUnit)}` }];
 }
 
 function valueEdits(s: StatedValue, field: FieldDef, to: GasUnit, bareAfter: GasUnit | null): TextEdit[] {
