@@ -4,7 +4,7 @@
  * nothing is fetched from the internet. Waits are on selectors with bounded timeouts.
  */
 import { execFileSync, spawn, type ChildProcess } from 'node:child_process';
-import { cpSync, mkdirSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { cpSync, mkdirSync, mkdtempSync, writeFileSync } from 'node:fs';
 import { createServer } from 'node:net';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -17,8 +17,6 @@ export const CHROMIUM_FLAGS = ['--headless', '--no-sandbox', '--disable-gpu', '-
 export interface Workbench {
   readonly page: Page;
   readonly workspace: string;
-  /** The user settings.json the workbench reads. */
-  readonly userSettings: string;
   close(): Promise<void>;
 }
 
@@ -95,7 +93,6 @@ export async function startWorkbench(vsix: string): Promise<Workbench> {
   return {
     page,
     workspace,
-    userSettings: join(userData, 'User', 'settings.json'),
     async close() {
       await browser.close().catch(() => undefined);
       server.kill();
