@@ -21,18 +21,40 @@ function placeholderFix(line: number, m: PrivacyMatch): Fix {
   };
 }
 
+interface LineMatch {
+  readonly line: number;
+  readonly match: PrivacyMatch;
+}
+
 /**
- * Each line is scanned once per check: a timepoint's lines in `runTimepoint` (so an editing
- * session keeps the findings of unchanged timepoints), and the lines outside every timepoint
- * (the header before the first `@`) in `run`.
+ * The seven checks share one scan of each group of lines: the matches are kept per timepoint
+ * (and per tree for the header), so the first check to ask scans and the others read.
+ */
+const scanned = new WeakMap<object, readonly LineMatch[]>();
+
+function matchesOf(owner: object, lines: readonly LineNode[], start: number, end: number): readonly LineMatch[] {
+  const known = scanned.get(owner);
+  if (known) return known;
+  const found: LineMatch[] = [];
+  for (let i = start; i < end && i < lines.length; i++) {
+    const node = lines[i]!;
+    if (node.kind === 'blank' && !node.comment) continue;
+    for (const match of scanLine(node)) found.push({ line: node.line, match });
+  }
+  scanned.set(owner, found);
+  return found;
+}
+
+/**
+ * A timepoint's lines are checked in `runTimepoint` (so an editing session keeps the findings
+ * of unchanged timepoints), and the lines outside every timepoint (the header before the
+ * first `@`) in `run`.
  */
 function privacyCheck(code: string, alias: string, kind: PrivacyKind, title: string, doc: CheckDoc, message: (m: PrivacyMatch) => string): CheckDef {
-  const reportLines = (ctx: CheckContext, lines: readonly LineNode[]) => {
-    for (const node of lines) {
-      for (const m of scanLine(node)) {
-        if (m.kind !== kind) continue;
-        ctx.report({ range: toRange(node.line, m.span), message: message(m), fixes: [placeholderFix(node.line, m)] });
-      }
+  const report = (ctx: CheckContext, matches: readonly LineMatch[]) => {
+    for (const { line, match: m } of matches) {
+      if (m.kind !== kind) continue;
+      ctx.report({ range: toRange(line, m.span), message: message(m), fixes: [placeholderFix(line, m)] });
     }
   };
   return defineCheck({
@@ -43,11 +65,11 @@ function privacyCheck(code: string, alias: string, kind: PrivacyKind, title: str
       // note-scoped part is the header before it (the timepoints are checked one by one below).
       const lines = ctx.analysis.tree.lines;
       const first = ctx.analysis.timeline.timepoints[0];
-      reportLines(ctx, first ? lines.slice(0, first.startLine) : lines);
+      report(ctx, matchesOf(ctx.analysis.tree, lines, 0, first ? first.startLine : lines.length));
     },
     runTimepoint(ctx) {
       if (!ctx.settings.privacyChecks) return;
-      reportLines(ctx, ctx.analysis.tree.lines.slice(ctx.timepoint.startLine, ctx.timepoint.endLine + 1));
+      report(ctx, matchesOf(ctx.timepoint, ctx.analysis.tree.lines, ctx.timepoint.startLine, ctx.timepoint.endLine + 1));
     },
   });
 }

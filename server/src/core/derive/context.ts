@@ -59,21 +59,37 @@ function shownFormula(template: string): string {
   return template.indexOf('{') < 0 ? template : template.split('{').join('').split('}').join('');
 }
 
+/** The registry as the context reads it: definitions in order, and each id's position. */
+export interface DerivedTable {
+  readonly list: readonly DerivedDefinition[];
+  readonly slots: ReadonlyMap<string, number>;
+}
+
+type Evaluated = DerivedValue | MissingValue | NotApplicable | null;
+
+/** Marks a slot that is being computed (guards against a cycle). */
+const IN_PROGRESS = 0;
+
 export class DeriveContext {
-  private readonly cache = new Map<string, DerivedValue | MissingValue | NotApplicable | null>();
-  private readonly memos = new Map<string, unknown>();
+  /** Results by slot: undefined until computed. Arrays, not maps: a big note has tens of thousands of contexts. */
+  private readonly results: (Evaluated | typeof IN_PROGRESS | undefined)[];
+  private memos: Map<string, unknown> | null = null;
+  private terms: Map<string, Term> | null = null;
 
   constructor(
     readonly timepoint: Timepoint,
     readonly settings: Settings,
-    private readonly defs: ReadonlyMap<string, DerivedDefinition>,
-  ) {}
+    private readonly table: DerivedTable,
+  ) {
+    this.results = new Array<Evaluated | typeof IN_PROGRESS | undefined>(table.list.length);
+  }
 
   /** A value computed once per timepoint and shared by several definitions (e.g. the acid–base classification). */
   memo<T>(key: string, compute: () => T): T {
-    if (this.memos.has(key)) return this.memos.get(key) as T;
+    const memos = (this.memos ??= new Map<string, unknown>());
+    if (memos.has(key)) return memos.get(key) as T;
     const value = compute();
-    this.memos.set(key, value);
+    memos.set(key, value);
     return value;
   }
 
@@ -81,7 +97,13 @@ export class DeriveContext {
   field(id: string, name?: string): Term | null {
     const input = this.timepoint.values.get(id);
     if (!input || !input.stated.usable || input.stated.value === null) return null;
-    return termOf(input, name);
+    // Several formulas read the same input under the same name: one term object serves them.
+    const terms = (this.terms ??= new Map<string, Term>());
+    const known = terms.get(id);
+    if (known && (name === undefined ? known.name === defaultTermName(id) : known.name === name)) return known;
+    const term = termOf(input, name);
+    terms.set(id, term);
+    return term;
   }
 
   /** A word value in force (device, mode, sex). */
@@ -109,13 +131,18 @@ export class DeriveContext {
     return r && 'value' in r ? r : null;
   }
 
-  evaluate(id: string): DerivedValue | MissingValue | NotApplicable | null {
-    if (this.cache.has(id)) return this.cache.get(id) ?? null;
-    const def = this.defs.get(id);
-    if (!def) return null;
-    this.cache.set(id, null); // guards against a cycle
-    const result = evaluateDef(def, this);
-    this.cache.set(id, result);
+  evaluate(id: string): Evaluated {
+    const slot = this.table.slots.get(id);
+    return slot === undefined ? null : this.evaluateSlot(slot);
+  }
+
+  /** The definition at `slot` of the registry, computed once. */
+  evaluateSlot(slot: number): Evaluated {
+    const known = this.results[slot];
+    if (known !== undefined) return known === IN_PROGRESS ? null : known;
+    this.results[slot] = IN_PROGRESS;
+    const result = evaluateDef(this.table.list[slot]!, this);
+    this.results[slot] = result;
     return result;
   }
 
@@ -161,7 +188,8 @@ export class DeriveContext {
   lacking(id: string): string {
     const r = this.evaluate(id);
     if (r && 'needs' in r) return r.needs.join(' and ');
-    return this.defs.get(id)?.short ?? id;
+    const slot = this.table.slots.get(id);
+    return slot === undefined ? id : this.table.list[slot]!.short;
   }
 
   /** Names what is missing: pairs of [term, key to add]. */
@@ -170,11 +198,16 @@ export class DeriveContext {
   }
 }
 
+function defaultTermName(fieldId: string): string {
+  const field = fieldById(fieldId);
+  return field?.short ?? field?.aliases[0] ?? fieldId;
+}
+
 function termOf(input: InputValue, name?: string): Term {
   const field = fieldById(input.stated.fieldId);
   const unit = input.stated.unit === null || input.stated.unit === 'fraction' || input.stated.unit === 'ph' ? '' : displayUnit(input.stated.unit);
   return {
-    name: name ?? field?.short ?? field?.aliases[0] ?? input.stated.fieldId,
+    name: name ?? defaultTermName(input.stated.fieldId),
     value: input.stated.value ?? NaN,
     unit,
     decimals: field?.decimals ?? 1,
@@ -216,28 +249,63 @@ function evaluateDef(def: DerivedDefinition, c: DeriveContext): DerivedValue | M
     return { id: def.id, label: def.label, needs: outcome.needs, message: `add ${outcome.needs.join(' and ')} to get ${def.short}`, line };
   }
   if (outcome.kind === 'na') return { id: def.id, label: def.label, reason: outcome.reason, line };
-  const formula = outcome.formula ?? def.formula;
-  const shown = formatNumber(outcome.value, def.decimals);
-  const range = outcome.range ?? null;
-  const result = range ? `${formatNumber(range.low, def.decimals)}–${formatNumber(range.high, def.decimals)}` : shown;
-  return {
-    id: def.id,
-    label: def.label,
-    short: def.short,
-    category: def.category,
-    value: outcome.value,
-    unit: def.unit,
-    decimals: def.decimals,
-    range,
-    formula: outcome.formula ? shownFormula(outcome.formula) : def.shownFormula,
-    substituted: `${substitute(formula, outcome.terms)} = ${result}${def.unit ? ` ${def.unit}` : ''}`,
-    inputs: outcome.terms,
-    source: def.source,
-    estimate: outcome.estimate ?? false,
-    notes: outcome.notes ?? [],
-    usesCarried: usesCarried(outcome.terms, c),
-    line,
-  };
+  return new ComputedValue(def, outcome, usesCarried(outcome.terms, c), line);
+}
+
+type ValueOutcome = Extract<Outcome, { kind: 'value' }>;
+
+const NO_NOTES: readonly string[] = Object.freeze([]);
+
+/**
+ * A computed derived value. The formula with its numbers put in is built on first read: most
+ * values are never hovered, and a big note has tens of thousands of them.
+ */
+class ComputedValue implements DerivedValue {
+  readonly id: string;
+  readonly label: string;
+  readonly short: string;
+  readonly category: DerivedCategory;
+  readonly value: number;
+  readonly unit: string;
+  readonly decimals: number;
+  readonly range: { readonly low: number; readonly high: number } | null;
+  readonly formula: string;
+  readonly inputs: readonly Term[];
+  readonly source: string;
+  readonly estimate: boolean;
+  readonly notes: readonly string[];
+  readonly usesCarried: boolean;
+  readonly line: number | null;
+  private readonly template: string;
+  private shown: string | null = null;
+
+  constructor(def: DerivedDefinition, outcome: ValueOutcome, carried: boolean, line: number | null) {
+    this.id = def.id;
+    this.label = def.label;
+    this.short = def.short;
+    this.category = def.category;
+    this.value = outcome.value;
+    this.unit = def.unit;
+    this.decimals = def.decimals;
+    this.range = outcome.range ?? null;
+    this.formula = outcome.formula ? shownFormula(outcome.formula) : def.shownFormula;
+    this.inputs = outcome.terms;
+    this.source = def.source;
+    this.estimate = outcome.estimate ?? false;
+    this.notes = outcome.notes ?? NO_NOTES;
+    this.usesCarried = carried;
+    this.line = line;
+    this.template = outcome.formula ?? def.formula;
+  }
+
+  get substituted(): string {
+    if (this.shown === null) {
+      const range = this.range;
+      const result = range ? `${formatNumber(range.low, this.decimals)}–${formatNumber(range.high, this.decimals)}` : formatNumber(this.value, this.decimals);
+      this.shown = `${substitute(this.template, this.inputs)} = ${result}${this.unit ? ` ${this.unit}` : ''}`;
+    }
+    return this.shown;
+  }
 }
 
 /** Puts each term's value in place of `{name}` in a formula template. */

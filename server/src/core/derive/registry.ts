@@ -7,7 +7,7 @@ import type { Timepoint } from '../analysis/model';
 import type { Settings } from '../settings';
 import * as acidBase from './acid-base';
 import * as atmosphere from './atmosphere';
-import { DeriveContext, type DerivedDefinition } from './context';
+import { DeriveContext, type DerivedDefinition, type DerivedTable } from './context';
 import * as gas from './gas-exchange';
 import { interpret } from './interpret';
 import * as mech from './mechanics';
@@ -61,14 +61,38 @@ function validateDerived(list: readonly DerivedDefinition[]): readonly DerivedDe
 }
 
 const byId: ReadonlyMap<string, DerivedDefinition> = new Map(DERIVED.map((d) => [d.id, d]));
+const TABLE: DerivedTable = { list: DERIVED, slots: new Map(DERIVED.map((d, i) => [d.id, i])) };
+
+/** For each field id, the slots of the definitions it anchors (a value is reported where an anchor is stated). */
+const ANCHORED: ReadonlyMap<string, readonly number[]> = (() => {
+  const out = new Map<string, number[]>();
+  DERIVED.forEach((d, slot) => {
+    for (const id of d.anchors) {
+      const list = out.get(id) ?? [];
+      list.push(slot);
+      out.set(id, list);
+    }
+  });
+  return out;
+})();
 
 export function derivedDef(id: string): DerivedDefinition | undefined {
   return byId.get(id);
 }
 
-/** Whether a definition is worth reporting at this timepoint (an anchor input is stated here). */
-function relevant(def: DerivedDefinition, tp: Timepoint): boolean {
-  return def.anchors.some((id) => tp.values.get(id)?.origin.kind === 'here');
+/**
+ * Which definitions are worth reporting at this timepoint: those with an anchor input stated
+ * here (in force with origin `here`). Read from the few values stated here rather than by
+ * asking every definition about every anchor.
+ */
+function relevantSlots(tp: Timepoint): boolean[] {
+  const relevant = new Array<boolean>(DERIVED.length).fill(false);
+  for (const s of tp.stated) {
+    const slots = ANCHORED.get(s.fieldId);
+    if (!slots || tp.values.get(s.fieldId)?.origin.kind !== 'here') continue;
+    for (const slot of slots) relevant[slot] = true;
+  }
+  return relevant;
 }
 
 /**
@@ -77,13 +101,14 @@ function relevant(def: DerivedDefinition, tp: Timepoint): boolean {
  * later timepoint); a missing input is named only then too.
  */
 export function deriveTimepoint(tp: Timepoint, settings: Settings): TimepointDerivation {
-  const ctx = new DeriveContext(tp, settings, byId);
+  const ctx = new DeriveContext(tp, settings, TABLE);
   const derived: DerivedValue[] = [];
   const missing: MissingValue[] = [];
   const notApplicable: NotApplicable[] = [];
-  for (const def of DERIVED) {
-    if (!relevant(def, tp)) continue;
-    const r = ctx.evaluate(def.id);
+  const relevant = relevantSlots(tp);
+  for (let slot = 0; slot < DERIVED.length; slot++) {
+    if (!relevant[slot]) continue;
+    const r = ctx.evaluateSlot(slot);
     if (!r) continue;
     if ('value' in r) derived.push(r);
     else if ('needs' in r) missing.push(r);
