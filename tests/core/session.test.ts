@@ -43,6 +43,44 @@ describe('NoteSession', () => {
     );
   });
 
+  it('matches a fresh parse after character edits anywhere, line terminators included (400 sequences)', () => {
+    // Edits that split, join and re-terminate lines: a lone \r becoming \r\n, a \r\n losing its \n, …
+    const pieces = fc.constantFrom('\n', '\r', '\r\n', ' ', 'hr 9', '@ 08:00', 'vitals ', 'abg 7.3/50/70', '#', '');
+    const edit = fc.record({ at: fc.nat(), remove: fc.nat({ max: 12 }), insert: fc.array(pieces, { maxLength: 3 }).map((p) => p.join('')) });
+    const start = ['patient age 70 y', '@ day 1 08:00', 'vitals hr 90\r\nabg 7.30/50/70/24', '', '@ +1h\rvent peep 8 fio2 0.4', 'note calm'].join('\n');
+    fc.assert(
+      fc.property(fc.array(edit, { minLength: 1, maxLength: 10 }), (edits) => {
+        const session = new NoteSession();
+        let text = start;
+        session.update(text);
+        for (const e of edits) {
+          const at = e.at % (text.length + 1);
+          text = text.slice(0, at) + e.insert + text.slice(Math.min(text.length, at + e.remove));
+          const got = session.update(text);
+          const fresh = checkNote(text);
+          expect(got.analysis.tree).toEqual(fresh.analysis.tree);
+          expect(snapshot(got)).toEqual(snapshot(fresh));
+        }
+      }),
+      { numRuns: 400 },
+    );
+  });
+
+  it('parses only the lines an edit touches', () => {
+    const session = new NoteSession();
+    const lines = [...baseLines];
+    session.update(lines.join('\n'));
+    const k = lines.findIndex((l) => l.startsWith('vitals'));
+    lines[k] = `${lines[k]} temp 37.2`;
+    session.update(lines.join('\n'));
+    expect(session.stats.parsedLines).toBe(1);
+    lines.splice(k, 0, 'note inserted line');
+    session.update(lines.join('\n'));
+    // The new line, and the lines at the edges of the changed stretch of text (their terminators touch it).
+    expect(session.stats.parsedLines).toBeLessThanOrEqual(3);
+    expect(session.stats.parsedLines).toBeGreaterThanOrEqual(1);
+  });
+
   it('reuses every other timepoint when a measurement changes', () => {
     const session = new NoteSession();
     session.update(base);

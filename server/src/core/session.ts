@@ -29,6 +29,8 @@ export class NoteSession {
   private settings: Settings;
   private last: NoteResult | null = null;
   private lastText: string | null = null;
+  /** Start offset of each line of `lastText`. */
+  private starts: number[] = [];
   private timelineCache: TimelineCache | null = null;
   private derivations = new WeakMap<Timepoint, TimepointDerivation>();
   private findings: TimepointFindingsCache = new WeakMap();
@@ -72,25 +74,92 @@ export class NoteSession {
     return this.last;
   }
 
+  /**
+   * The new tree: the lines before and after the changed stretch of text keep their nodes (a
+   * line after it moves when lines were added or removed); only the lines in between are split
+   * and parsed. The changed stretch is found by comparing the texts from both ends, so an edit
+   * costs a few block comparisons of the text plus the changed lines, not a split of the note.
+   */
   private parse(text: string): { tree: NoteTree; parsed: number } {
-    const { lines, eol } = splitLines(text);
-    const before = this.last?.analysis.tree.lines ?? [];
-    const n = lines.length;
-    const m = before.length;
-    // Unchanged lines at the start keep their number; unchanged lines at the end move by n − m.
-    let head = 0;
-    while (head < n && head < m && lines[head]!.text === before[head]!.text) head++;
-    let tail = 0;
-    while (tail < n - head && tail < m - head && lines[n - 1 - tail]!.text === before[m - 1 - tail]!.text) tail++;
-    let parsed = 0;
-    const nodes: LineNode[] = lines.map((l, i) => {
-      const old = i < head ? before[i] : i >= n - tail ? before[i - n + m] : undefined;
-      if (!old) {
-        parsed++;
-        return parseLine(l.text, i, l.offset);
+    const before = this.last?.analysis.tree.lines;
+    const old = this.lastText;
+    if (!before || old === null || this.starts.length !== before.length) {
+      const { lines, eol } = splitLines(text);
+      const nodes = new Array<LineNode>(lines.length);
+      const starts = new Array<number>(lines.length);
+      for (let i = 0; i < lines.length; i++) {
+        nodes[i] = parseLine(lines[i]!.text, i);
+        starts[i] = lines[i]!.offset;
       }
-      return old.line === i && old.offset === l.offset ? old : { ...old, line: i, offset: l.offset };
-    });
-    return { tree: { lines: nodes, eol }, parsed };
+      this.starts = starts;
+      return { tree: { lines: nodes, eol }, parsed: lines.length };
+    }
+    const m = before.length;
+    const oldStarts = this.starts;
+    const prefix = commonPrefix(old, text);
+    const suffix = commonSuffix(old, text, Math.min(old.length, text.length) - prefix);
+    // A leading line is unchanged when its text, its terminator and the first character after
+    // it lie in the common prefix (so a lone `\r` cannot have become `\r\n`).
+    let head = 0;
+    while (head < m - 1 && oldStarts[head + 1]! < prefix) head++;
+    // A trailing line is unchanged when the character before it (the end of the terminator
+    // before it) lies in the common suffix: it then starts right after that character in both.
+    const suffixStart = old.length - suffix;
+    let tail = 0;
+    while (tail < m - head && oldStarts[m - 1 - tail]! - 1 >= suffixStart && m - 1 - tail > head) tail++;
+    const delta = text.length - old.length;
+    const midStart = oldStarts[head]!;
+    const midEnd = tail > 0 ? oldStarts[m - tail]! + delta : text.length;
+    const split = splitLines(text.slice(midStart, midEnd));
+    // With lines after the stretch, the stretch ends with a terminator: its empty last piece is not a line.
+    const middle = tail > 0 ? split.lines.slice(0, -1) : split.lines;
+    const n = head + middle.length + tail;
+    const nodes = new Array<LineNode>(n);
+    const starts = new Array<number>(n);
+    for (let i = 0; i < head; i++) {
+      nodes[i] = before[i]!;
+      starts[i] = oldStarts[i]!;
+    }
+    for (let k = 0; k < middle.length; k++) {
+      const i = head + k;
+      nodes[i] = parseLine(middle[k]!.text, i);
+      starts[i] = midStart + middle[k]!.offset;
+    }
+    for (let k = 0; k < tail; k++) {
+      const i = n - tail + k;
+      const node = before[m - tail + k]!;
+      nodes[i] = node.line === i ? node : { ...node, line: i };
+      starts[i] = oldStarts[m - tail + k]! + delta;
+    }
+    this.starts = starts;
+    return { tree: { lines: nodes, eol: firstEol(text) }, parsed: middle.length };
   }
+}
+
+/** Characters compared at once when looking for the changed stretch (string equality is a block compare). */
+const BLOCK = 1024;
+
+function commonPrefix(a: string, b: string): number {
+  const limit = Math.min(a.length, b.length);
+  let i = 0;
+  while (i + BLOCK <= limit && a.substring(i, i + BLOCK) === b.substring(i, i + BLOCK)) i += BLOCK;
+  while (i < limit && a.charCodeAt(i) === b.charCodeAt(i)) i++;
+  return i;
+}
+
+/** Length of the common end of `a` and `b`, at most `limit`. */
+function commonSuffix(a: string, b: string, limit: number): number {
+  let k = 0;
+  while (k + BLOCK <= limit && a.substring(a.length - k - BLOCK, a.length - k) === b.substring(b.length - k - BLOCK, b.length - k)) k += BLOCK;
+  while (k < limit && a.charCodeAt(a.length - 1 - k) === b.charCodeAt(b.length - 1 - k)) k++;
+  return k;
+}
+
+/** The first line terminator of the text (`\n` when it has none), as `splitLines` reports it. */
+function firstEol(text: string): NoteTree['eol'] {
+  const lf = text.indexOf('\n');
+  const cr = text.indexOf('\r');
+  if (cr < 0) return '\n';
+  if (lf < 0 || cr < lf) return text.charCodeAt(cr + 1) === 0x0a ? '\r\n' : '\r';
+  return '\n';
 }

@@ -59,13 +59,13 @@ export function formatEdits(text: string, lines?: LineSpan): TextEdit[] {
 export function formatLine(node: LineNode): string | null {
   if (node.issues.length > 0) return null;
   if (node.kind !== 'section' && node.kind !== 'timepoint') return null;
-  const prefix = node.line === 0 && node.offset === 0 && node.text.startsWith(BOM) ? BOM : '';
+  const prefix = node.line === 0 && node.text.startsWith(BOM) ? BOM : '';
   const wanted = signature(node);
   for (const unglue of [true, false]) {
     const content = node.kind === 'section' ? sectionContent(node, unglue) : timepointContent(node);
     if (content === null) return null;
     const candidate = withComment(node, prefix + content);
-    if (signature(parseLine(candidate, node.line, node.offset)) === wanted) return candidate;
+    if (signature(parseLine(candidate, node.line)) === wanted) return candidate;
   }
   return null;
 }

@@ -53,46 +53,55 @@ export function splitLines(text: string): { lines: LineSlice[]; eol: NoteTree['e
 
 export function parseNote(text: string): NoteTree {
   const { lines, eol } = splitLines(text);
-  return { lines: lines.map((l, i) => parseLine(l.text, i, l.offset)), eol };
+  const nodes = new Array<LineNode>(lines.length);
+  for (let i = 0; i < lines.length; i++) nodes[i] = parseLine(lines[i]!.text, i);
+  return { lines: nodes, eol };
 }
 
-export function parseLine(text: string, line: number, offset = 0): LineNode {
+/**
+ * Shared empty lists: most lines have no issues, and a note line's node must stay small (a big
+ * note has tens of thousands of them). Frozen, so sharing is safe.
+ */
+const NO_ISSUES: readonly SyntaxIssue[] = Object.freeze([]);
+const NO_ITEMS: readonly ItemNode[] = Object.freeze([]);
+
+export function parseLine(text: string, line: number): LineNode {
   try {
-    return parseLineUnsafe(text, line, offset);
+    return parseLineUnsafe(text, line);
   } catch {
     // Defensive: the parser is written not to throw, but a line must never take the note down.
-    return { kind: 'blank', line, offset, text, comment: null, issues: [{ check: 'stray-text', span: { start: 0, end: text.length }, message: 'This line could not be read.', fixes: [] }] };
+    return { kind: 'blank', line, text, comment: null, issues: [{ check: 'stray-text', span: { start: 0, end: text.length }, message: 'This line could not be read.', fixes: [] }] };
   }
 }
 
-function parseLineUnsafe(text: string, line: number, offset: number): LineNode {
+function parseLineUnsafe(text: string, line: number): LineNode {
   const hash = text.indexOf('#');
   const bodyEnd = hash >= 0 ? hash : text.length;
   const comment: Token | null = hash >= 0 ? { text: text.slice(hash), span: { start: hash, end: text.length } } : null;
-  const body = text.slice(0, bodyEnd);
+  const body = hash >= 0 ? text.slice(0, bodyEnd) : text;
   const chunks = chunkLine(body);
-  const base = { line, offset, text, comment };
   const first = chunks[0];
-  if (!first) return { kind: 'blank', ...base, issues: [] };
+  if (!first) return { kind: 'blank', line, text, comment, issues: NO_ISSUES };
 
-  if (first.text.startsWith('@')) return parseTimepoint(body, chunks, base);
+  if (first.text.charCodeAt(0) === 0x40 /* @ */) return parseTimepoint(body, chunks, line, text, comment);
 
   const section = sectionByName(first.text);
-  const sectionToken: Token = { text: first.text, span: first.span };
+  // A chunk is a token (its text and span); it is kept as one rather than copied.
+  const sectionToken: Token = first;
   if (!section) {
     const restStart = chunks[1]?.span.start;
     const rest: Token | null = restStart === undefined ? null : { text: body.slice(restStart).trimEnd(), span: { start: restStart, end: restStart + body.slice(restStart).trimEnd().length } };
-    return { kind: 'unknown', ...base, first: sectionToken, rest, issues: [unknownSectionIssue(first)] };
+    return { kind: 'unknown', line, text, comment, first: sectionToken, rest, issues: [unknownSectionIssue(first)] };
   }
   if (section.id === 'note') {
     const proseStart = chunks[1]?.span.start;
     const proseEnd = chunks[chunks.length - 1]?.span.end ?? first.span.end;
     const prose: Token | null = proseStart === undefined ? null : { text: body.slice(proseStart, proseEnd), span: { start: proseStart, end: proseEnd } };
-    return { kind: 'section', ...base, section: section.id, sectionToken, items: [], prose, issues: [] };
+    return { kind: 'section', line, text, comment, section: section.id, sectionToken, items: NO_ITEMS, prose, issues: NO_ISSUES };
   }
   const issues: SyntaxIssue[] = [];
-  const items = parseItems(section.id, chunks.slice(1), issues);
-  return { kind: 'section', ...base, section: section.id, sectionToken, items, prose: null, issues };
+  const items = parseItems(section.id, chunks, 1, issues);
+  return { kind: 'section', line, text, comment, section: section.id, sectionToken, items, prose: null, issues: issues.length === 0 ? NO_ISSUES : issues };
 }
 
 function unknownSectionIssue(first: Chunk): SyntaxIssue {
@@ -120,7 +129,7 @@ function unknownSectionIssue(first: Chunk): SyntaxIssue {
 
 // ── timepoints ──────────────────────────────────────────────────────────
 
-function parseTimepoint(body: string, chunks: Chunk[], base: { line: number; offset: number; text: string; comment: Token | null }): LineNode {
+function parseTimepoint(body: string, chunks: Chunk[], line: number, text: string, comment: Token | null): LineNode {
   const issues: SyntaxIssue[] = [];
   const first = chunks[0]!;
   const marker: Token = { text: '@', span: { start: first.span.start, end: first.span.start + 1 } };
@@ -180,7 +189,7 @@ function parseTimepoint(body: string, chunks: Chunk[], base: { line: number; off
   const l0 = labelChunks[0];
   const lN = labelChunks[labelChunks.length - 1];
   const label: Token | null = l0 && lN ? { text: body.slice(l0.span.start, lN.span.end), span: { start: l0.span.start, end: lN.span.end } } : null;
-  return { kind: 'timepoint', ...base, marker, time, label, issues };
+  return { kind: 'timepoint', line, text, comment, marker, time, label, issues: issues.length === 0 ? NO_ISSUES : issues };
 }
 
 function looksLikeClock(text: string): boolean {
@@ -240,19 +249,22 @@ interface ChunkValue {
   readonly gluedUnit: Token | null;
 }
 
+const NOT_A_NUMBER: ChunkValue = Object.freeze({ value: null, gluedUnit: null });
+
 function readNumberChunk(chunk: Chunk): ChunkValue {
   const num = leadingNumber(chunk.text);
-  if (num.length === 0) return { value: null, gluedUnit: null };
+  if (num.length === 0) return NOT_A_NUMBER;
+  const whole = num.length === chunk.text.length;
   const value: NumberValue = {
     kind: 'number',
-    text: chunk.text.slice(0, num.length),
+    text: whole ? chunk.text : chunk.text.slice(0, num.length),
     value: num.value,
-    span: { start: chunk.span.start, end: chunk.span.start + num.length },
+    span: whole ? chunk.span : { start: chunk.span.start, end: chunk.span.start + num.length },
     decimalComma: num.decimalComma,
   };
-  if (num.length === chunk.text.length) return { value, gluedUnit: null };
+  if (whole) return { value, gluedUnit: null };
   const suffix = chunk.text.slice(num.length);
-  if (suffix.includes('/') && isDigit(suffix.charCodeAt(1))) return { value: null, gluedUnit: null };
+  if (suffix.includes('/') && isDigit(suffix.charCodeAt(1))) return NOT_A_NUMBER;
   return { value, gluedUnit: { text: suffix, span: { start: value.span.end, end: chunk.span.end } } };
 }
 
@@ -289,9 +301,9 @@ function deviceWordAt(chunks: readonly Chunk[], i: number): { text: string; span
   return null;
 }
 
-function parseItems(section: SectionId, chunks: readonly Chunk[], issues: SyntaxIssue[]): ItemNode[] {
+function parseItems(section: SectionId, chunks: readonly Chunk[], start: number, issues: SyntaxIssue[]): ItemNode[] {
   const items: ItemNode[] = [];
-  let i = 0;
+  let i = start;
   const n = chunks.length;
 
   /** Reads the unit after a number value at `i` (a glued unit, or the next chunk when it reads as one). */
@@ -300,20 +312,20 @@ function parseItems(section: SectionId, chunks: readonly Chunk[], issues: Syntax
     const next = chunks[i];
     if (!next || next.afterComma) return null;
     if (leadingNumber(next.text).length > 0) return null;
-    if (isKnownUnitSpelling(next.text)) { i++; return { text: next.text, span: next.span }; }
+    if (isKnownUnitSpelling(next.text)) { i++; return next; }
     if (isKey(section, next.text)) return null;
     const after = chunks[i + 1];
     if (after && !after.afterComma && leadingNumber(after.text).length > 0) return null;
     // Something unit-like we do not know: keep it as the unit so the unit check can name it.
-    if (next.text.length <= 12) { i++; return { text: next.text, span: next.span }; }
+    if (next.text.length <= 12) { i++; return next; }
     return null;
   };
 
   // Shorthand gas: abg 7.28/56/71/26 [kPa]
-  if ((section === 'abg' || section === 'vbg') && chunks[0]) {
-    const group = readSlashGroup(chunks[0]);
+  if ((section === 'abg' || section === 'vbg') && chunks[start]) {
+    const group = readSlashGroup(chunks[start]);
     if (group) {
-      i = 1;
+      i = start + 1;
       if (group.parts.length < 2 || group.parts.length > 4) {
         issues.push({ check: 'bad-shorthand', span: group.span, message: `A shorthand gas has 2 to 4 numbers (pH/PCO2/PO2/HCO3); this one has ${group.parts.length}.`, fixes: [] });
       } else {
@@ -329,9 +341,9 @@ function parseItems(section: SectionId, chunks: readonly Chunk[], issues: Syntax
 
   // Oxygen device first: oxygen cannula 4 L/min, oxygen room air
   if (section === 'oxygen') {
-    const dev = deviceWordAt(chunks, 0);
+    const dev = deviceWordAt(chunks, start);
     if (dev) {
-      i = dev.used;
+      i = start + dev.used;
       const value: WordValue = { kind: 'word', text: dev.text, span: dev.span };
       items.push({ key: null, keyName: 'device', implied: 'device', value, unit: null, span: dev.span });
       const next = chunks[i];
@@ -356,8 +368,8 @@ function parseItems(section: SectionId, chunks: readonly Chunk[], issues: Syntax
       i++;
       continue;
     }
-    // A key.
-    const key: Token = { text: chunk.text, span: chunk.span };
+    // A key (the chunk itself serves as the token).
+    const key: Token = chunk;
     const keyName = chunk.text.toLowerCase();
     const field = fieldFor(section, chunk.text);
     i++;

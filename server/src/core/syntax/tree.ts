@@ -90,8 +90,6 @@ export interface TimeSpec {
 
 interface LineBase {
   readonly line: number;
-  /** Start offset of the line in the whole text (UTF-16), for incremental work. */
-  readonly offset: number;
   readonly text: string;
   readonly comment: Token | null;
   readonly issues: readonly SyntaxIssue[];
