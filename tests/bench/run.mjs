@@ -40,8 +40,9 @@ const editLine = (i) => vitalsLines[Math.floor(vitalsLines.length / 4) + (i % 40
 for (let i = 0; i < 40; i++) {
   const k = editLine(i);
   edited[k] = edited[k].replace(/hr (\d+)/, (_m, n) => `hr ${Number(n) + 1}`);
+  const next = edited.join('\n');
   const t = performance.now();
-  session.update(edited.join('\n'));
+  session.update(next);
   inc.push(performance.now() - t);
 }
 row('incremental update (NoteSession)', inc, '—');

@@ -102,8 +102,8 @@ export function buildTimelineIncremental(tree: NoteTree, settings: Settings, pre
     }
     entries.push({ nodes, index, endLine, stateIn: state, result });
     if (result.timepoint) timepoints.push(result.timepoint);
-    header.push(...result.header);
-    readIssues.push(...result.issues);
+    for (const s of result.header) header.push(s);
+    for (const issue of result.issues) readIssues.push(issue);
     state = result.stateOut;
   });
   return { timeline: { timepoints, readIssues, header }, cache: { settings, blocks: entries, reused } };

@@ -8,6 +8,7 @@ import type { NoteAnalysis } from '../analysis/analyse';
 import type { Timepoint } from '../analysis/model';
 import type { TimepointDerivation } from '../derive/model';
 import type { Settings } from '../settings';
+import type { LineNode } from '../syntax/tree';
 import type { Fix, Range, Severity } from '../types';
 
 export interface CheckDoc {
@@ -62,4 +63,18 @@ export interface CheckDef {
 
 export function defineCheck(def: CheckDef): CheckDef {
   return def;
+}
+
+/**
+ * The lines a check of single lines visits: `run` covers the note's header (the lines before
+ * the first timepoint) and `runTimepoint` each timepoint's lines, so an editing session keeps
+ * the findings of unchanged timepoints instead of visiting every line of the note again.
+ */
+export function headerLineCount(analysis: NoteAnalysis): number {
+  const first = analysis.timeline.timepoints[0];
+  return first ? first.startLine : analysis.tree.lines.length;
+}
+
+export function timepointLines(ctx: TimepointContext): readonly LineNode[] {
+  return ctx.analysis.tree.lines.slice(ctx.timepoint.startLine, ctx.timepoint.endLine + 1);
 }

@@ -3,22 +3,28 @@
  * value reader record the problem under the check's alias, and these checks report it.
  */
 import type { ReadCheckAlias } from '../analysis/read-issues';
-import { lineFixToFix, toRange, type SyntaxCheckAlias } from '../syntax/tree';
-import { defineCheck, type CheckDef, type CheckDoc, type CheckTag } from './check';
+import { lineFixToFix, toRange, type LineNode, type SyntaxCheckAlias } from '../syntax/tree';
+import { defineCheck, headerLineCount, timepointLines, type CheckContext, type CheckDef, type CheckDoc, type CheckTag } from './check';
 import type { Severity } from '../types';
 
 const FORMAT_RULE = 'format rule (grammar/README.md)';
 
 function syntaxCheck(code: string, alias: SyntaxCheckAlias, title: string, severity: Severity, doc: CheckDoc): CheckDef {
+  const visit = (ctx: CheckContext, lines: readonly LineNode[]) => {
+    for (const node of lines) {
+      for (const issue of node.issues) {
+        if (issue.check !== alias) continue;
+        ctx.report({ range: toRange(node.line, issue.span), message: issue.message, fixes: issue.fixes.map((f) => lineFixToFix(node.line, f)) });
+      }
+    }
+  };
   return defineCheck({
     code, alias, title, severity, tags: ['syntax'], doc, source: FORMAT_RULE,
     run(ctx) {
-      for (const node of ctx.analysis.tree.lines) {
-        for (const issue of node.issues) {
-          if (issue.check !== alias) continue;
-          ctx.report({ range: toRange(node.line, issue.span), message: issue.message, fixes: issue.fixes.map((f) => lineFixToFix(node.line, f)) });
-        }
-      }
+      visit(ctx, ctx.analysis.tree.lines.slice(0, headerLineCount(ctx.analysis)));
+    },
+    runTimepoint(ctx) {
+      visit(ctx, timepointLines(ctx));
     },
   });
 }

@@ -9,7 +9,7 @@ import { scanLine } from '../privacy/free-text';
 import { PLACEHOLDERS, type PrivacyKind, type PrivacyMatch } from '../privacy/types';
 import { toRange, type LineNode } from '../syntax/tree';
 import type { Fix } from '../types';
-import { defineCheck, type CheckContext, type CheckDef, type CheckDoc } from './check';
+import { defineCheck, headerLineCount, type CheckContext, type CheckDef, type CheckDoc } from './check';
 
 const SOURCE = 'de-identification practice (common practice, no source); HIPAA Safe Harbor list of identifiers, 45 CFR 164.514(b)(2) (from memory)';
 
@@ -63,9 +63,7 @@ function privacyCheck(code: string, alias: string, kind: PrivacyKind, title: str
       if (!ctx.settings.privacyChecks) return;
       // Timepoints cover every line from the first one's start to the end of the note: the
       // note-scoped part is the header before it (the timepoints are checked one by one below).
-      const lines = ctx.analysis.tree.lines;
-      const first = ctx.analysis.timeline.timepoints[0];
-      report(ctx, matchesOf(ctx.analysis.tree, lines, 0, first ? first.startLine : lines.length));
+      report(ctx, matchesOf(ctx.analysis.tree, ctx.analysis.tree.lines, 0, headerLineCount(ctx.analysis)));
     },
     runTimepoint(ctx) {
       if (!ctx.settings.privacyChecks) return;
