@@ -79,8 +79,9 @@ export async function deactivate(): Promise<void> {
 function createClient(context: vscode.ExtensionContext, output: vscode.LogOutputChannel): LanguageClient {
   const module = context.asAbsolutePath('dist/server.js');
   const serverOptions: ServerOptions = {
-    run: { module, transport: TransportKind.ipc },
-    debug: { module, transport: TransportKind.ipc, options: { execArgv: ['--nolazy', '--inspect=6019'] } },
+    // stdio: the server writes its messages as ASCII JSON there, which keeps big notes cheap to publish.
+    run: { module, transport: TransportKind.stdio },
+    debug: { module, transport: TransportKind.stdio, options: { execArgv: ['--nolazy', '--inspect=6019'] } },
   };
   const clientOptions: LanguageClientOptions = {
     documentSelector: [{ language: LANGUAGE }],

@@ -1,4 +1,5 @@
 // Protocol-level tests: the bundled server over a real stdio JSON-RPC connection.
+import { spawn } from 'node:child_process';
 import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -217,5 +218,16 @@ describe('robustness', () => {
   it('exits cleanly on shutdown and exit', async () => {
     const other = await startClient();
     expect(await other.close()).toBe(0);
+  });
+
+  it('ends when the client closes its end of stdio, and keeps console output off the protocol stream', async () => {
+    const child = spawn(process.execPath, ['dist/server.js', '--stdio'], { stdio: 'pipe' });
+    let stdout = '';
+    child.stdout.on('data', (d: Buffer) => { stdout += d.toString(); });
+    const exited = new Promise<number | null>((resolve) => child.once('exit', (code) => resolve(code)));
+    child.stdin.end();
+    // Without a shutdown request first, the status says the end was abrupt.
+    expect(await exited).toBe(1);
+    expect(stdout).toBe('');
   });
 });
