@@ -2,6 +2,7 @@
 // recomputes only the timepoints an edit touches (and those that depend on what they carry).
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
+import { allDerivations } from '../../server/src/core/analysis/analyse';
 import { checkNote, type NoteResult } from '../../server/src/core/check-note';
 import { NoteSession } from '../../server/src/core/session';
 import { readFileSync } from 'node:fs';
@@ -10,7 +11,7 @@ function snapshot(r: NoteResult): unknown {
   return {
     findings: r.findings,
     timepoints: r.analysis.timeline.timepoints.map((tp) => ({ ...tp, values: [...tp.values.entries()].map(([k, v]) => [k, v.stated.value, v.stated.word, v.origin]) , stated: tp.stated.map((s) => [s.fieldId, s.value, s.line]) })),
-    derivations: r.analysis.derivations,
+    derivations: allDerivations(r.analysis),
   };
 }
 

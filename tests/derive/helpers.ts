@@ -1,10 +1,11 @@
 /** Small helpers that make derived-value tests read like the notes they check. */
+import { allDerivations } from '../../server/src/core/analysis/analyse';
 import { checkNote } from '../../server/src/core/check-note';
 import type { DerivedValue, Interpretation, TimepointDerivation } from '../../server/src/core/derive/model';
 import type { Settings } from '../../server/src/core/settings';
 
 export function derivation(text: string, settings: Partial<Settings> = {}, timepoint = -1): TimepointDerivation {
-  const list = checkNote(text, settings).analysis.derivations;
+  const list = allDerivations(checkNote(text, settings).analysis);
   const d = list.at(timepoint);
   if (!d) throw new Error('no timepoint in the note');
   return d;

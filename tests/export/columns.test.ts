@@ -3,6 +3,7 @@
 import { UcumLhcUtils } from '@lhncbc/ucum-lhc';
 import { describe, expect, it } from 'vitest';
 import { exportColumns, findingsByTimepoint, findingsOfTimepoint, RANGE_DERIVED_IDS, timepointRows, unitSlug, type Row } from '../../server/src/core/export';
+import { allDerivations } from '../../server/src/core/analysis/analyse';
 import { DERIVED } from '../../server/src/core/derive/registry';
 import { FIELDS } from '../../server/src/core/fields/registry';
 import { fixtureFiles } from '../helpers/expectations';
@@ -79,7 +80,7 @@ describe('expected ranges', () => {
     const withRange = new Set<string>();
     const without = new Set<string>();
     for (const { text } of fixtureFiles('tests/fixtures', 'samples')) {
-      for (const d of checked(text).analysis.derivations.flatMap((x) => x.derived)) (d.range ? withRange : without).add(d.id);
+      for (const d of allDerivations(checked(text).analysis).flatMap((x) => x.derived)) (d.range ? withRange : without).add(d.id);
     }
     expect([...withRange].sort()).toEqual([...RANGE_DERIVED_IDS].sort());
     for (const id of RANGE_DERIVED_IDS) expect(without.has(id), id).toBe(false);

@@ -42,6 +42,14 @@ describe('what the hints say', () => {
     expect(labelsByLine(note('place barometric 628 mmHg', '@ 08:00', 'abg 7.40/38/60/24'))[0]).toBeUndefined();
   });
 
+  it('shows the header altitude\'s pressure when only the header is visible, from a later timepoint', () => {
+    // The first timepoints have no gas (no value anchored there); the pressure comes with the gas.
+    const text = note('place     altitude 1650 m', '', '@ 08:00', 'vitals hr 90', '@ 09:00', 'vitals hr 92', '@ 10:00', 'abg 7.40/38/60/24');
+    const hints = hintsOf(text, ALL, { start: 0, end: 1 });
+    expect(hints.map((h) => [h.position.line, h.label])).toEqual([[0, 'PB 630 mmHg']]);
+    expect(hintsOf(text, ALL, { start: 2, end: 5 })).toEqual([]);
+  });
+
   it('after an oxygen line with a low-flow device: the estimated FiO2', () => {
     expect(labelsByLine(note('@ 08:00', 'oxygen    cannula 3 L/min'))[1]).toBe('FiO2 ≈ 0.33 (est.)');
   });

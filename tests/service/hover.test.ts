@@ -1,6 +1,7 @@
 // Hovers on section words, keys, values, units and timepoint lines, and the derived-value
 // explanation shared with inlay hints.
 import { describe, expect, it } from 'vitest';
+import { allDerivations } from '../../server/src/core/analysis/analyse';
 import { checkNote } from '../../server/src/core/check-note';
 import { CAUTION, derivedHover, hoverAt } from '../../server/src/core/service';
 import { note, noteAt } from './cursor';
@@ -149,7 +150,7 @@ describe('hover where there is nothing to say', () => {
 
 describe('derivedHover', () => {
   const result = checkNote(note('patient age 40 y', '@ 08:00', 'oxygen cannula 2', 'vent peep 5', '@ 09:00', 'oxygen room air', 'abg ph 7.31, pco2 41, po2 71, hco3 20'));
-  const derived = result.analysis.derivations.flatMap((d) => d.derived);
+  const derived = allDerivations(result.analysis).flatMap((d) => d.derived);
   const byId = (id: string) => derived.find((d) => d.id === id)!;
 
   it('explains a value: label, value, formula in words and with numbers, inputs and origins, source, caution', () => {
@@ -164,7 +165,7 @@ describe('derivedHover', () => {
   });
 
   it('marks an estimate, shows ranges, and names derived inputs', () => {
-    const est = derivedHover(checkNote('@ 08:00\noxygen cannula 3').analysis.derivations[0]!.derived.find((d) => d.id === 'fio2_estimated')!);
+    const est = derivedHover(checkNote('@ 08:00\noxygen cannula 3').analysis.derivation(0).derived.find((d) => d.id === 'fio2_estimated')!);
     expect(est).toContain('_estimate_');
     const aa = derivedHover(byId('aa_gradient'));
     expect(aa).toContain('- PAO2 98 mmHg — computed here: Alveolar PO2');

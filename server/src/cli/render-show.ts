@@ -57,7 +57,7 @@ export function renderShow(path: string, result: NoteResult, p: Paint): string {
     }
     for (const f of byLine.get(node.line) ?? []) out.push(renderFinding(f, p));
     const ending = tpByEnd.get(node.line);
-    if (ending) out.push(...renderTimepointFooter(ending, analysis.derivations[ending.index], p));
+    if (ending) out.push(...renderTimepointFooter(ending, analysis.derivation(ending.index), p));
   }
   return out.join('\n');
 }

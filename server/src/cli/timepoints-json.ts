@@ -1,6 +1,7 @@
 /** The per-timepoint part of `check --format json`: values in force with units and origins. */
 import type { NoteResult } from '../core/check-note';
-import type { InputOrigin } from '../core/derive/model';
+import type { Timepoint } from '../core/analysis/model';
+import type { InputOrigin, TimepointDerivation } from '../core/derive/model';
 import { displayUnit } from '../core/analysis/read-value';
 
 export interface JsonValue {
@@ -30,7 +31,11 @@ export interface JsonOrigin {
 }
 
 export function timepointsJson(result: NoteResult): unknown[] {
-  return result.analysis.timeline.timepoints.map((tp) => ({
+  return result.analysis.timeline.timepoints.map((tp) => timepointJson(tp, result.analysis.derivation(tp.index)));
+}
+
+function timepointJson(tp: Timepoint, derivation: TimepointDerivation): unknown {
+  return {
     index: tp.index,
     label: tp.label,
     line: tp.line === null ? null : tp.line + 1,
@@ -44,7 +49,7 @@ export function timepointsJson(result: NoteResult): unknown[] {
       origin: originJson(v.origin),
       usable: v.stated.usable,
     })),
-    derived: (result.analysis.derivations[tp.index]?.derived ?? []).map((d) => ({
+    derived: derivation.derived.map((d) => ({
       id: d.id,
       value: d.value,
       ...(d.range ? { low: d.range.low, high: d.range.high } : {}),
@@ -57,7 +62,7 @@ export function timepointsJson(result: NoteResult): unknown[] {
       notes: d.notes,
       source: d.source,
     })),
-    missing: (result.analysis.derivations[tp.index]?.missing ?? []).map((m) => ({ id: m.id, needs: m.needs, message: m.message })),
-    readings: (result.analysis.derivations[tp.index]?.interpretations ?? []).map((i) => ({ topic: i.topic, text: i.text, notable: i.notable })),
-  }));
+    missing: derivation.missing.map((m) => ({ id: m.id, needs: m.needs, message: m.message })),
+    readings: derivation.interpretations.map((i) => ({ topic: i.topic, text: i.text, notable: i.notable })),
+  };
 }

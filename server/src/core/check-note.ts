@@ -61,7 +61,7 @@ export function runChecks(analysis: NoteAnalysis, settings: Settings, checks: re
       for (const f of known) findings.push(f);
       return;
     }
-    const derivation = analysis.derivations[i] ?? { timepoint: i, derived: [], missing: [], notApplicable: [], interpretations: [] };
+    const derivation = analysis.derivation(i);
     const own: Finding[] = [];
     for (const check of perTimepoint) {
       const runTimepoint = check.runTimepoint!;

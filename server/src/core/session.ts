@@ -10,9 +10,7 @@
  */
 import { runChecks, type NoteResult, type TimepointFindingsCache } from './check-note';
 import { buildTimelineIncremental, type TimelineCache } from './analysis/timeline';
-import { deriveTimepoint } from './derive/registry';
-import type { Timepoint } from './analysis/model';
-import type { TimepointDerivation } from './derive/model';
+import { deriverFor } from './analysis/analyse';
 import { withDefaults, type Settings } from './settings';
 import { parseLine, splitLines } from './syntax/parser';
 import type { LineNode, NoteTree } from './syntax/tree';
@@ -32,7 +30,6 @@ export class NoteSession {
   /** Start offset of each line of `lastText`. */
   private starts: number[] = [];
   private timelineCache: TimelineCache | null = null;
-  private derivations = new WeakMap<Timepoint, TimepointDerivation>();
   private findings: TimepointFindingsCache = new WeakMap();
   private statsValue: SessionStats = { parsedLines: 0, reusedTimepoints: 0, timepoints: 0 };
 
@@ -44,7 +41,6 @@ export class NoteSession {
     this.settings = withDefaults(settings);
     this.lastText = null;
     this.timelineCache = null;
-    this.derivations = new WeakMap();
     this.findings = new WeakMap();
   }
 
@@ -61,14 +57,9 @@ export class NoteSession {
     const { tree, parsed } = this.parse(text);
     const { timeline, cache } = buildTimelineIncremental(tree, this.settings, this.timelineCache);
     this.timelineCache = cache;
-    const derivations = timeline.timepoints.map((tp) => {
-      const known = this.derivations.get(tp);
-      if (known) return known;
-      const d = deriveTimepoint(tp, this.settings);
-      this.derivations.set(tp, d);
-      return d;
-    });
-    this.last = runChecks({ tree, timeline, derivations }, this.settings, undefined, this.findings);
+    // Derived values are computed for the timepoints whose findings are not kept from the last
+    // run, and then dropped (see NoteAnalysis.derivation).
+    this.last = runChecks({ tree, timeline, derivation: deriverFor(timeline, this.settings) }, this.settings, undefined, this.findings);
     this.lastText = text;
     this.statsValue = { parsedLines: parsed, reusedTimepoints: cache.reused, timepoints: timeline.timepoints.length };
     return this.last;

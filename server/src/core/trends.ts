@@ -19,8 +19,9 @@ export interface TrendPointData {
 }
 
 export function trendPoints(result: NoteResult): TrendPointData[] {
-  const { timeline, derivations } = result.analysis;
+  const { timeline } = result.analysis;
   return timeline.timepoints.map((tp, i) => {
+    const derivation = result.analysis.derivation(i);
     const values: Partial<Record<TrendKey, number>> = {};
     const carried: TrendKey[] = [];
     for (const id of TREND_FIELDS) {
@@ -31,7 +32,7 @@ export function trendPoints(result: NoteResult): TrendPointData[] {
       if (v.origin.kind === 'carried' || v.origin.kind === 'header') carried.push(id);
     }
     for (const id of TREND_DERIVED) {
-      const d = derivations[i]?.derived.find((x) => x.id === id);
+      const d = derivation.derived.find((x) => x.id === id);
       if (!d) continue;
       values[id] = d.value;
       if (d.usesCarried) carried.push(id);
@@ -42,10 +43,10 @@ export function trendPoints(result: NoteResult): TrendPointData[] {
 
 /** Key figures of the timepoint that holds a line, for a status bar: `P/F 147 · PaCO2 47 · pH 7.31`. */
 export function timepointSummary(result: NoteResult, line: number): { label: string; text: string; tooltip: string } | null {
-  const { timeline, derivations } = result.analysis;
+  const { timeline } = result.analysis;
   const tp = timeline.timepoints.find((t) => line >= t.startLine && line <= t.endLine);
   if (!tp) return null;
-  const d = derivations[tp.index];
+  const d = result.analysis.derivation(tp.index);
   const parts: string[] = [];
   const pf = d?.derived.find((x) => x.id === 'pf_ratio');
   if (pf) parts.push(`P/F ${formatNumber(pf.value, 0)}`);

@@ -11,13 +11,31 @@ import { buildTimeline, type Timeline } from './timeline';
 export interface NoteAnalysis {
   readonly tree: NoteTree;
   readonly timeline: Timeline;
-  /** Derived values and interpretations, one entry per timepoint (same order). */
-  readonly derivations: readonly TimepointDerivation[];
+  /**
+   * Derived values and interpretations of the timepoint at `index`, computed when asked and not
+   * kept: they are a pure function of the timepoint and the settings, cheap for one timepoint,
+   * and a big note would otherwise hold tens of thousands of them. Callers ask for the
+   * timepoints they show (a hover, the visible hints, one export row at a time).
+   */
+  readonly derivation: (index: number) => TimepointDerivation;
 }
 
 export function analyseTree(tree: NoteTree, settings: Settings): NoteAnalysis {
   const timeline = buildTimeline(tree, settings);
-  return { tree, timeline, derivations: timeline.timepoints.map((tp) => deriveTimepoint(tp, settings)) };
+  return { tree, timeline, derivation: deriverFor(timeline, settings) };
+}
+
+/** `NoteAnalysis.derivation` for a timeline. */
+export function deriverFor(timeline: Timeline, settings: Settings): (index: number) => TimepointDerivation {
+  return (index) => {
+    const tp = timeline.timepoints[index];
+    return tp ? deriveTimepoint(tp, settings) : { timepoint: index, derived: [], missing: [], notApplicable: [], interpretations: [] };
+  };
+}
+
+/** Every timepoint's derivation, in order (for whole-note output; computes them all). */
+export function allDerivations(analysis: NoteAnalysis): TimepointDerivation[] {
+  return analysis.timeline.timepoints.map((tp) => analysis.derivation(tp.index));
 }
 
 export function analyseText(text: string, settings: Settings): NoteAnalysis {

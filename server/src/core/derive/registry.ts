@@ -96,6 +96,17 @@ function relevantSlots(tp: Timepoint): boolean[] {
 }
 
 /**
+ * One derived value at a timepoint, when it is reported there (an anchor input is stated here)
+ * and can be computed; the rest of the timepoint is not derived.
+ */
+export function derivedAt(tp: Timepoint, settings: Settings, id: string): DerivedValue | null {
+  const slot = TABLE.slots.get(id);
+  if (slot === undefined || !relevantSlots(tp)[slot]) return null;
+  const r = new DeriveContext(tp, settings, TABLE).evaluateSlot(slot);
+  return r && 'value' in r ? r : null;
+}
+
+/**
  * Everything derived at one timepoint. A value is reported only where one of its anchor inputs
  * was stated at this timepoint (so a carried PEEP does not repeat a driving pressure at every
  * later timepoint); a missing input is named only then too.

@@ -327,7 +327,7 @@ export function timepointRows(path: string, result: NoteResult, options: ExportO
   const gasUnitAt = gasUnits(result);
   const findingsAt = findingsByTimepoint(result);
   return result.analysis.timeline.timepoints.map((timepoint, i) => {
-    const derived = new Map((result.analysis.derivations[timepoint.index]?.derived ?? []).map((d) => [d.id, d]));
+    const derived = new Map(result.analysis.derivation(timepoint.index).derived.map((d) => [d.id, d]));
     const context: RowContext = { path, timepoint, derived, findings: findingsAt[i] ?? [], firstMinutes, gasUnit: gasUnitAt[i] ?? result.settings.gasUnit, label: writtenLabel(result, timepoint), options };
     const row: Row = {};
     for (const column of COLUMNS) row[column.name] = column.cell(context);

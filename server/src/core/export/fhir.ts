@@ -288,7 +288,7 @@ export function toFhirBundle(path: string, result: NoteResult, options: FhirOpti
       const resource = fieldObservation(field, input, place);
       if (resource) fullUrls.set(`${tp.index}:${field.id}`, add(place, field.id, resource));
     }
-    const pf = (result.analysis.derivations[tp.index]?.derived ?? []).find((d) => d.id === 'pf_ratio');
+    const pf = result.analysis.derivation(tp.index).derived.find((d) => d.id === 'pf_ratio');
     if (pf) {
       const resource = pfObservation(pf, tp, place, fullUrls);
       if (resource) add(place, pf.id, resource);

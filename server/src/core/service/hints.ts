@@ -17,6 +17,7 @@ import { derivedBody, termText } from './derived-hover';
 import { contentEnd, lineAt } from './locate';
 import { cautionLine, escapeMarkdown, paragraphs } from './markdown';
 import { describeInputOrigin } from '../derive/context';
+import { derivedAt } from '../derive/registry';
 import { HINT_CATEGORIES, type HintCategory, type InlayHintInfo, type LineSpan } from './types';
 
 export interface HintOptions {
@@ -69,6 +70,11 @@ export const HINT_PICKS: Readonly<Record<HintCategory, readonly Pick[]>> = {
   ],
 };
 
+/** Whether the header's estimated pressure already has its hint. */
+function shownOnHeader(shown: ReadonlySet<string>, result: NoteResult): boolean {
+  return result.analysis.timeline.header.some((s) => s.fieldId === 'altitude' && shown.has(`${s.line}:barometric`));
+}
+
 /** The line of the altitude a barometric pressure was estimated from (stated here or in the header). */
 function altitudeLine(d: DerivedValue): number | null {
   const input = d.inputs[0];
@@ -104,12 +110,23 @@ export function inlayHints(result: NoteResult, lines: LineSpan, options: HintOpt
 
   const timepoints = result.analysis.timeline.timepoints;
   const headerInRange = lines.start < (timepoints[0]?.startLine ?? Number.POSITIVE_INFINITY);
-  for (const derivation of result.analysis.derivations) {
-    const tp = timepoints[derivation.timepoint];
-    // Only timepoints whose lines meet the range; others can only give the header's place hint.
-    const outside = tp !== undefined && (tp.endLine < lines.start || tp.startLine > lines.end);
-    if (outside && !headerInRange) continue;
-    const all = outside ? derivation.derived.filter((d) => d.id === 'barometric') : derivation.derived;
+  // Only timepoints whose lines meet the range are derived; the others can only give the header's
+  // place hint (a pressure estimated from a header altitude, shown once on the header's line).
+  const headerAltitude = headerInRange && result.analysis.timeline.header.some((s) => s.fieldId === 'altitude');
+  for (const tp of timepoints) {
+    const outside = tp.endLine < lines.start || tp.startLine > lines.end;
+    if (outside && (!headerAltitude || shownOnHeader(shown, result))) continue;
+    let derivation: TimepointDerivation;
+    let all: readonly DerivedValue[];
+    if (outside) {
+      const barometric = derivedAt(tp, result.settings, 'barometric');
+      if (!barometric) continue;
+      all = [barometric];
+      derivation = { timepoint: tp.index, derived: all, missing: [], notApplicable: [], interpretations: [] };
+    } else {
+      derivation = result.analysis.derivation(tp.index);
+      all = derivation.derived;
+    }
     for (const category of HINT_CATEGORIES) {
       if (!options.categories.has(category)) continue;
       if (category === 'acid-base' && !outside) {

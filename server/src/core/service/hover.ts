@@ -157,7 +157,7 @@ function usableText(s: StatedValue): string | null {
 }
 
 function derivationOf(result: NoteResult, tp: Timepoint): TimepointDerivation | null {
-  return result.analysis.derivations.find((d) => d.timepoint === tp.index) ?? null;
+  return result.analysis.derivation(tp.index);
 }
 
 function feedsText(result: NoteResult, s: StatedValue): string | null {
