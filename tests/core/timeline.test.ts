@@ -1,4 +1,6 @@
 import { describe, expect, it } from 'vitest';
+import fc from 'fast-check';
+import { nearlyValidNote } from '../helpers/arbitraries';
 import { checkNote } from '../../server/src/core/check-note';
 import type { Timepoint } from '../../server/src/core/analysis/model';
 
@@ -125,5 +127,28 @@ describe('reading units', () => {
     expect(codes('place altitude 0 m\n@ 12:00\nabg ph 7.53, pco2 13.3, po2 24.6')).toEqual(['PN204', 'PN204']);
     // With the unit written, they are unusual at sea level.
     expect(codes('place altitude 0 m\n@ 12:00\nabg ph 7.53, pco2 13.3 mmHg, po2 24.6 mmHg')).toEqual(['PN302', 'PN302']);
+  });
+});
+
+describe('values in force (layered per timepoint, shared carried layer)', () => {
+  it('reads, tests and iterates the same values, each with the origin its carry rule gives (300 notes)', () => {
+    fc.assert(
+      fc.property(nearlyValidNote, (text) => {
+        for (const tp of timeline(text).timepoints) {
+          const listed = new Map(tp.values);
+          expect(tp.values.size).toBe(listed.size);
+          for (const [id, v] of listed) {
+            expect(tp.values.get(id)).toBe(v);
+            expect(tp.values.has(id)).toBe(true);
+            // Stated at this timepoint: origin `here` on its own line; otherwise from an earlier timepoint or the header.
+            const statedHere = tp.stated.some((s) => s === v.stated);
+            expect(v.origin.kind === 'here', `${id} at ${tp.label}`).toBe(statedHere);
+            if (v.origin.kind === 'carried') expect(v.origin.timepoint).toBeLessThan(tp.index);
+          }
+          expect(tp.values.get('no_such_field')).toBeUndefined();
+        }
+      }),
+      { numRuns: 300 },
+    );
   });
 });

@@ -178,7 +178,7 @@ function processBlock(nodes: readonly LineNode[], index: number, endLine: number
   }
   const stateOut = reuseEqual(mutable, previousOut);
   if (!tp) return { timepoint: null, header, issues, stateOut };
-  return { timepoint: freeze(tp, endLine, stateOut, settings), header, issues, stateOut };
+  return { timepoint: freeze(tp, endLine, stateOut, stateIn, settings), header, issues, stateOut };
 }
 
 function firstContentLine(tree: NoteTree): number {
@@ -313,14 +313,93 @@ function sameHeld(a: Held, b: Held): boolean {
     s.value === t.value && s.word === t.word && s.unit === t.unit && s.usable === t.usable && s.unitDoubt === t.unitDoubt;
 }
 
-function freeze(b: { index: number; line: number | null; label: string; startLine: number; time: TimepointTime; stated: StatedValue[] }, endLine: number, state: CarryState, settings: Settings): Timepoint {
-  const values = new Map<string, InputValue>();
-  const put = (held: Held) => values.set(held.stated.fieldId, { stated: held.stated, origin: originOf(held, b.index) });
-  for (const map of [state.patient, state.place, state.oxygen, state.vent]) for (const held of map.values()) put(held);
+/**
+ * The values in force at one timepoint, in two layers: those stated at this timepoint (its
+ * measurements and the settings stated here), and the settings carried in. The carried layer
+ * is built once per change of the carried state and shared by every timepoint until the next
+ * change, so a big note does not hold a full map per timepoint. Reads look in the timepoint's
+ * layer, then the carried one; iterating builds the full map once (in the order stated below).
+ */
+class ValuesInForce implements ReadonlyMap<string, InputValue> {
+  private full: Map<string, InputValue> | null = null;
+
+  constructor(
+    private readonly own: ReadonlyMap<string, InputValue>,
+    private readonly carried: ReadonlyMap<string, InputValue>,
+    private readonly state: CarryState,
+    private readonly stated: readonly StatedValue[],
+  ) {}
+
+  get(id: string): InputValue | undefined {
+    return this.own.get(id) ?? this.carried.get(id);
+  }
+
+  has(id: string): boolean {
+    return this.own.has(id) || this.carried.has(id);
+  }
+
+  /** Settings (patient, place, oxygen, ventilator) in the order they are held, then what was measured here. */
+  private all(): Map<string, InputValue> {
+    if (this.full) return this.full;
+    const full = new Map<string, InputValue>();
+    for (const map of [this.state.patient, this.state.place, this.state.oxygen, this.state.vent]) {
+      for (const held of map.values()) full.set(held.stated.fieldId, this.get(held.stated.fieldId)!);
+    }
+    for (const s of this.stated) if (isHereOnly(s)) full.set(s.fieldId, this.own.get(s.fieldId)!);
+    this.full = full;
+    return full;
+  }
+
+  get size(): number { return this.all().size; }
+  entries(): MapIterator<[string, InputValue]> { return this.all().entries(); }
+  keys(): MapIterator<string> { return this.all().keys(); }
+  values(): MapIterator<InputValue> { return this.all().values(); }
+  [Symbol.iterator](): MapIterator<[string, InputValue]> { return this.all().entries(); }
+  forEach(callback: (value: InputValue, key: string, map: ReadonlyMap<string, InputValue>) => void, thisArg?: unknown): void {
+    for (const [k, v] of this.all()) callback.call(thisArg, v, k, this);
+  }
+}
+
+/** Measurements and device readings: in force only where stated (the last of a field wins). */
+function isHereOnly(s: StatedValue): boolean {
+  return sectionById(s.section).kind === 'measure' || fieldById(s.fieldId)?.reading === true;
+}
+
+/** The carried layer of each carried state (see ValuesInForce). */
+const carriedLayers = new WeakMap<CarryState, ReadonlyMap<string, InputValue>>();
+
+function carriedLayer(state: CarryState, stateIn: CarryState): ReadonlyMap<string, InputValue> {
+  const known = carriedLayers.get(state);
+  if (known) return known;
+  const unchanged = state.patient === stateIn.patient && state.place === stateIn.place && state.oxygen === stateIn.oxygen && state.vent === stateIn.vent;
+  const before = unchanged ? carriedLayers.get(stateIn) : undefined;
+  let layer: ReadonlyMap<string, InputValue>;
+  if (before) {
+    layer = before;
+  } else {
+    const built = new Map<string, InputValue>();
+    for (const map of [state.patient, state.place, state.oxygen, state.vent]) {
+      for (const held of map.values()) built.set(held.stated.fieldId, { stated: held.stated, origin: originOf(held, Number.POSITIVE_INFINITY) });
+    }
+    layer = built;
+  }
+  carriedLayers.set(state, layer);
+  return layer;
+}
+
+function freeze(b: { index: number; line: number | null; label: string; startLine: number; time: TimepointTime; stated: StatedValue[] }, endLine: number, state: CarryState, stateIn: CarryState, settings: Settings): Timepoint {
+  const own = new Map<string, InputValue>();
+  // Settings stated at this timepoint (still held at its end) are in force here with their line.
+  for (const map of [state.patient, state.place, state.oxygen, state.vent]) {
+    for (const held of map.values()) {
+      if (held.timepoint === b.index) own.set(held.stated.fieldId, { stated: held.stated, origin: originOf(held, b.index) });
+    }
+  }
   // Measurements and device readings stated here (the last of a field wins).
   for (const s of b.stated) {
-    if (sectionById(s.section).kind === 'measure' || fieldById(s.fieldId)?.reading) values.set(s.fieldId, { stated: s, origin: { kind: 'here', line: s.line, span: s.item.span } });
+    if (isHereOnly(s)) own.set(s.fieldId, { stated: s, origin: { kind: 'here', line: s.line, span: s.item.span } });
   }
+  const values = new ValuesInForce(own, carriedLayer(state, stateIn), state, b.stated);
   return { index: b.index, line: b.line, label: b.label, startLine: b.startLine, endLine, time: b.time, stated: b.stated, values, barometricMmhg: barometricInForce(state.place, settings) };
 }
 
