@@ -5,6 +5,11 @@
  * the connection's console, never to stdout, which carries the protocol.
  */
 import { format } from 'node:util';
+import { keepYoungGenerationSmall } from './memory';
+
+// Before anything sizable is allocated (see memory.ts).
+keepYoungGenerationSmall();
+
 import { createConnection, ProposedFeatures, StreamMessageReader, StreamMessageWriter, type Connection } from 'vscode-languageserver/node';
 import { startServer } from './server';
 import { asciiJsonEncoder } from './wire';

@@ -39,6 +39,7 @@ import {
 } from '../protocol';
 import { ProjectConfigs } from '../node/project-config';
 import { DEFAULT_CLIENT_SETTINGS, effectiveSettings, readClientSettings, settingsKey, type ClientSettings, type EffectiveSettings } from './settings';
+import { IdleCollector } from './memory';
 import { rangesOverlap, toCodeAction, toCompletionItem, toDiagnostic, toDocumentSymbol, toInlayHint } from './translate';
 
 interface NoteState {
@@ -58,7 +59,7 @@ function docsUri(): string {
   return pathToFileURL(found).toString();
 }
 
-export function startServer(connection: Connection): void {
+export function startServer(connection: Connection, collector: IdleCollector = new IdleCollector()): void {
   const documents = new TextDocuments(TextDocument);
   const notes = new Map<string, NoteState>();
   const clientSettings = new Map<string, ClientSettings>();
@@ -183,6 +184,7 @@ export function startServer(connection: Connection): void {
     state.diagnostics = diagnostics;
     void connection.sendDiagnostics({ uri, version, diagnostics });
     void connection.sendNotification(ANALYSED_NOTIFICATION, { uri, version, millis: performance.now() - started });
+    collector.analysed();
   }
 
   function schedule(uri: string, immediate: boolean): void {

@@ -1,0 +1,80 @@
+/**
+ * Memory of the language server. A big note is analysed in bursts that allocate a lot of
+ * short-lived objects, and V8's defaults suit throughput-bound programs: the young generation
+ * grows to 32 MB on the first burst and stays there, and the garbage of a burst waits in the old
+ * generation for the next collection, which an idle editor may not trigger for minutes.
+ *
+ * - The young generation is kept at its starting size (the growth factor is a V8 flag read each
+ *   time the heap would grow, so it can be set after start-up). The objects an analysis keeps
+ *   are copied out of the young generation whatever its size; a small one costs more frequent
+ *   but shorter pauses, not more time (see tests/bench: `npm run bench`).
+ * - After an analysis, once the server has been idle for a moment, a full collection returns
+ *   the burst's garbage to the system. The collector is V8's own `gc`, exposed through a flag.
+ *
+ * Both are skipped quietly where the runtime does not allow them.
+ */
+import { setFlagsFromString } from 'node:v8';
+import { runInNewContext } from 'node:vm';
+
+/** Idle time after the last analysis before the garbage of the analyses is collected. */
+export const IDLE_COLLECT_MS = 1000;
+
+export function keepYoungGenerationSmall(): void {
+  try {
+    setFlagsFromString('--semi-space-growth-factor=1');
+  } catch {
+    // Not a V8 that knows the flag: the defaults stay.
+  }
+}
+
+function exposedCollector(): (() => void) | null {
+  try {
+    setFlagsFromString('--expose-gc');
+    const gc: unknown = runInNewContext('gc');
+    return typeof gc === 'function' ? () => { (gc as () => void)(); } : null;
+  } catch {
+    return null;
+  }
+}
+
+/**
+ * Collects garbage once the server has been idle for `idleMs` after the last `analysed()` call.
+ * `collect` is V8's collector by default; tests pass their own.
+ */
+export class IdleCollector {
+  private timer: NodeJS.Timeout | null = null;
+  private collections = 0;
+
+  constructor(
+    private readonly collect: (() => void) | null = exposedCollector(),
+    private readonly idleMs = IDLE_COLLECT_MS,
+  ) {}
+
+  /** Whether a collector is available at all. */
+  get available(): boolean {
+    return this.collect !== null;
+  }
+
+  get count(): number {
+    return this.collections;
+  }
+
+  analysed(): void {
+    if (!this.collect) return;
+    if (this.timer) clearTimeout(this.timer);
+    this.timer = setTimeout(() => {
+      this.timer = null;
+      this.collections++;
+      // Twice: V8 returns the pages a collection freed to the system at the next one.
+      this.collect?.();
+      this.collect?.();
+    }, this.idleMs);
+    // An idle collection never keeps the process alive.
+    this.timer.unref();
+  }
+
+  dispose(): void {
+    if (this.timer) clearTimeout(this.timer);
+    this.timer = null;
+  }
+}
