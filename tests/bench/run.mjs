@@ -4,7 +4,8 @@
 //   incremental update   NoteSession.update after a one-line edit (in process)
 //   edit → diagnostics   a one-line didChange to the publishDiagnostics answering it, over a real
 //                        stdio connection to dist/server.js, with the debounce set to 0
-//   inlay hints          textDocument/inlayHint for a 60-line visible range
+//   inlay hints          textDocument/inlayHint for a 60-line visible range (tooltips resolved on
+//                        hover, as VS Code declares)
 //   server memory        resident set size of the server process right after the edits, and
 //                        settled (after 1.5 s idle, when the server has collected the garbage)
 import { spawn } from 'node:child_process';
@@ -62,7 +63,7 @@ connection.onNotification('pneumark/analysed', () => undefined);
 connection.onRequest('workspace/configuration', (params) => params.items.map(() => ({ debounceMs: 0 })));
 connection.onRequest('client/registerCapability', () => null);
 connection.listen();
-await connection.sendRequest('initialize', { processId: process.pid, rootUri: null, capabilities: { workspace: { configuration: true } } });
+await connection.sendRequest('initialize', { processId: process.pid, rootUri: null, capabilities: { workspace: { configuration: true }, textDocument: { inlayHint: { resolveSupport: { properties: ['tooltip'] } } } } });
 await connection.sendNotification('initialized', {});
 const uri = 'file:///bench/generated.pneu';
 const published = (version) => new Promise((resolve) => waiting.set(version, resolve));

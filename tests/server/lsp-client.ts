@@ -54,7 +54,7 @@ export async function startClient(settings: Record<string, unknown> = {}): Promi
   const initialize = await connection.sendRequest<InitializeResult>('initialize', {
     processId: process.pid,
     rootUri: null,
-    capabilities: { workspace: { configuration: true, didChangeConfiguration: { dynamicRegistration: true } }, textDocument: { inlayHint: {}, publishDiagnostics: { versionSupport: true } } },
+    capabilities: { workspace: { configuration: true, didChangeConfiguration: { dynamicRegistration: true } }, textDocument: { inlayHint: { resolveSupport: { properties: ['tooltip'] } }, publishDiagnostics: { versionSupport: true } } },
   });
   await connection.sendNotification('initialized', {});
   return Object.assign(client, {

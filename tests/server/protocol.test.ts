@@ -94,8 +94,28 @@ describe('language features', () => {
     const labels = hints.map((h) => (typeof h.label === 'string' ? h.label : h.label.map((p) => p.value).join('')));
     expect(labels.some((l) => /P\/F 93/.test(l))).toBe(true);
     expect(labels.some((l) => /ΔP 19/.test(l))).toBe(true);
-    const tooltip = hints[0]?.tooltip;
+    // The client declares it resolves tooltips: hints come without them, and resolve gives them.
+    expect(client.initialize.capabilities.inlayHintProvider).toEqual({ resolveProvider: true });
+    expect(hints.every((h) => h.tooltip === undefined)).toBe(true);
+    const resolved = await client.connection.sendRequest<InlayHint>('inlayHint/resolve', hints[0]);
+    const tooltip = resolved.tooltip;
     expect(typeof tooltip === 'object' ? tooltip.value : tooltip).toMatch(/defer to local protocols/);
+    expect(resolved.label).toEqual(hints[0]?.label);
+  });
+
+  it('answers inlay hint tooltips only for the version of the note the hint came from', async () => {
+    const path = join(process.cwd(), 'resolve-version.pneu');
+    const text = '@ 08:00\noxygen mask, fio2 0.4\nabg 7.28/56/71/26\n';
+    const doc = client.open(path, text, 1);
+    await client.diagnostics(doc);
+    const hints = await client.connection.sendRequest<InlayHint[]>('textDocument/inlayHint', { textDocument: { uri: doc }, range: { start: { line: 0, character: 0 }, end: { line: 5, character: 0 } } });
+    expect(hints.length).toBeGreaterThan(0);
+    client.change(doc, `${text}note later\n`, 2);
+    await client.diagnostics(doc, (p) => p.version === 2);
+    const stale = await client.connection.sendRequest<InlayHint>('inlayHint/resolve', hints[0]);
+    expect(stale.tooltip).toBeUndefined();
+    const odd = await client.connection.sendRequest<InlayHint>('inlayHint/resolve', { position: { line: 0, character: 0 }, label: 'x', data: { nonsense: true } });
+    expect(odd.label).toBe('x');
   });
 
   it('completes sections at the start of a line and keys after a section', async () => {

@@ -13,6 +13,7 @@ import {
   TextDocuments,
   type Connection,
   type Diagnostic,
+  type InlayHint,
   type InitializeResult,
 } from 'vscode-languageserver/node';
 import { TextDocument } from 'vscode-languageserver-textdocument';
@@ -40,7 +41,7 @@ import {
 import { ProjectConfigs } from '../node/project-config';
 import { DEFAULT_CLIENT_SETTINGS, effectiveSettings, readClientSettings, settingsKey, type ClientSettings, type EffectiveSettings } from './settings';
 import { IdleCollector } from './memory';
-import { rangesOverlap, toCodeAction, toCompletionItem, toDiagnostic, toDocumentSymbol, toInlayHint } from './translate';
+import { isHintRef, rangesOverlap, toCodeAction, toCompletionItem, toDiagnostic, toDocumentSymbol, toInlayHint } from './translate';
 
 interface NoteState {
   session: NoteSession;
@@ -76,6 +77,8 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     return d;
   };
   let canPullConfiguration = false;
+  /** The client fetches a hint's tooltip when it shows it (`inlayHint/resolve`). */
+  let deferHintTooltips = false;
 
   const log = (message: string) => connection.console.log(message);
   const guard = <P, R>(name: string, fallback: R, handler: (params: P) => R) => (params: P): R => {
@@ -89,6 +92,7 @@ export function startServer(connection: Connection, collector: IdleCollector = n
 
   connection.onInitialize((params): InitializeResult => {
     canPullConfiguration = params.capabilities.workspace?.configuration === true;
+    deferHintTooltips = params.capabilities.textDocument?.inlayHint?.resolveSupport?.properties.includes('tooltip') === true;
     return {
       capabilities: {
         textDocumentSync: { openClose: true, change: TextDocumentSyncKind.Incremental, save: false },
@@ -99,7 +103,7 @@ export function startServer(connection: Connection, collector: IdleCollector = n
         foldingRangeProvider: true,
         documentFormattingProvider: true,
         documentRangeFormattingProvider: true,
-        inlayHintProvider: { resolveProvider: false },
+        inlayHintProvider: { resolveProvider: deferHintTooltips },
       },
       serverInfo: { name: 'pneumark', version: '0.1.0' },
     };
@@ -250,8 +254,23 @@ export function startServer(connection: Connection, collector: IdleCollector = n
 
   connection.onCompletion(withResult('completion', [], (result, _doc, _state, params) => completionsAt(result, params.position).map(toCompletionItem)));
 
-  connection.languages.inlayHint.on(withResult('inlay hints', [], (result, _doc, state, params) =>
-    inlayHints(result, { start: params.range.start.line, end: params.range.end.line }, { categories: state.settings.hints }).map(toInlayHint)));
+  connection.languages.inlayHint.on(withResult('inlay hints', [], (result, doc, state, params) =>
+    inlayHints(result, { start: params.range.start.line, end: params.range.end.line }, { categories: state.settings.hints })
+      .map((h) => toInlayHint(h, deferHintTooltips ? { uri: doc.uri, version: doc.version, line: h.position.line, category: h.category } : null))));
+
+  // The tooltip of a hint sent without it: the same hint of the same version of the note.
+  connection.languages.inlayHint.resolve((unresolved: InlayHint) => guard('inlay hint tooltip', unresolved, (hint: InlayHint): InlayHint => {
+    const ref: unknown = hint.data;
+    if (!isHintRef(ref)) return hint;
+    const doc = documents.get(ref.uri);
+    if (!doc || doc.version !== ref.version) return hint;
+    const state = stateFor(doc);
+    const result = resultFor(doc, state);
+    if (!result) return hint;
+    const found = inlayHints(result, { start: ref.line, end: ref.line }, { categories: state.settings.hints })
+      .find((h) => h.category === ref.category && h.position.line === ref.line);
+    return found ? { ...hint, tooltip: { kind: 'markdown', value: found.tooltipMarkdown } } : hint;
+  })(unresolved));
 
   connection.onCodeAction(withResult('code actions', [], (result, doc, state, params) => {
     const diagnostics = params.context.diagnostics.length > 0 ? params.context.diagnostics : state.diagnostics.filter((d) => rangesOverlap(d.range, params.range));

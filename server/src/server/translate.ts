@@ -34,13 +34,32 @@ export function toDiagnostic(f: Finding, uri: string, docsUri: string): Diagnost
   };
 }
 
-export function toInlayHint(h: InlayHintInfo): InlayHint {
+/** What a hint sent without its tooltip carries, to find it again on `inlayHint/resolve`. */
+export interface HintRef {
+  readonly uri: string;
+  readonly version: number;
+  readonly line: number;
+  readonly category: string;
+}
+
+/**
+ * A hint with its tooltip, or (`ref` given, for clients that resolve tooltips when one is
+ * hovered) without it: the tooltips are most of a hint's size and few are ever read.
+ */
+export function toInlayHint(h: InlayHintInfo, ref: HintRef | null = null): InlayHint {
+  if (ref) return { position: h.position, label: h.label, paddingLeft: h.paddingLeft ?? true, data: ref };
   return {
     position: h.position,
     label: h.label,
     tooltip: { kind: MarkupKind.Markdown, value: h.tooltipMarkdown },
     paddingLeft: h.paddingLeft ?? true,
   };
+}
+
+export function isHintRef(data: unknown): data is HintRef {
+  if (typeof data !== 'object' || data === null) return false;
+  const d = data as Record<string, unknown>;
+  return typeof d['uri'] === 'string' && typeof d['version'] === 'number' && Number.isInteger(d['line']) && typeof d['category'] === 'string';
 }
 
 const COMPLETION_KIND: Readonly<Record<CompletionInfo['kind'], CompletionItemKind>> = {
