@@ -47,7 +47,8 @@ interface NoteState {
   session: NoteSession;
   key: string;
   settings: EffectiveSettings;
-  timer: NodeJS.Timeout | null;
+  /** The scheduled analysis, if any. */
+  timer: { readonly cancel: () => void } | null;
   /** The version whose diagnostics were last published. */
   published: number | null;
   diagnostics: Diagnostic[];
@@ -193,19 +194,21 @@ export function startServer(connection: Connection, collector: IdleCollector = n
 
   function schedule(uri: string, immediate: boolean): void {
     const state = notes.get(uri);
-    if (state?.timer) clearTimeout(state.timer);
+    state?.timer?.cancel();
     const delay = immediate ? 0 : (state?.settings.debounceMs ?? DEFAULT_CLIENT_SETTINGS.debounceMs);
     const run = () => {
       const s = notes.get(uri);
       if (s) s.timer = null;
       guard('analysis', undefined, analyseAndPublish)(uri);
     };
-    if (delay === 0 && immediate) {
-      setImmediate(run);
+    // No debounce: right after the pending messages (a timer would wait a millisecond at least).
+    if (delay === 0) {
+      const handle = setImmediate(run);
+      if (state) state.timer = { cancel: () => clearImmediate(handle) };
       return;
     }
-    const timer = setTimeout(run, delay);
-    if (state) state.timer = timer;
+    const handle = setTimeout(run, delay);
+    if (state) state.timer = { cancel: () => clearTimeout(handle) };
   }
 
   documents.onDidOpen((e) => {
@@ -220,7 +223,7 @@ export function startServer(connection: Connection, collector: IdleCollector = n
   });
   documents.onDidClose((e) => {
     const state = notes.get(e.document.uri);
-    if (state?.timer) clearTimeout(state.timer);
+    state?.timer?.cancel();
     notes.delete(e.document.uri);
     clientSettings.delete(e.document.uri);
     void connection.sendDiagnostics({ uri: e.document.uri, diagnostics: [] });
