@@ -3,6 +3,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { checkNote } from '../../server/src/core/check-note';
+import { leadingNumber } from '../../server/src/core/syntax/lexer';
 import { parseNote, splitLines } from '../../server/src/core/syntax/parser';
 import type { Range } from '../../server/src/core/types';
 import { anyText } from '../helpers/arbitraries';
@@ -65,5 +66,26 @@ describe('parser properties', () => {
     expect(parseNote(longLine).lines[0]?.kind).toBe('section');
     const many = 'vitals hr 80\n'.repeat(20000);
     expect(parseNote(many).lines.length).toBe(20001);
+  });
+});
+
+describe('number reading', () => {
+  it('reads every number as Number() reads the same text (decimal comma as a point; 1000 cases)', () => {
+    const digits = fc.string({ unit: fc.constantFrom('0', '1', '2', '3', '4', '5', '6', '7', '8', '9'), minLength: 0, maxLength: 20 });
+    fc.assert(
+      fc.property(fc.constantFrom('', '-', '+', '−'), digits, fc.constantFrom('', '.', ','), digits, (sign, whole, point, fraction) => {
+        const text = `${sign}${whole}${point}${fraction}`;
+        const read = leadingNumber(text);
+        const reference = Number(text.replace(',', '.').replace('−', '-'));
+        const complete = (whole.length > 0 || (point !== '' && fraction.length > 0)) && (point === '' || fraction.length > 0);
+        if (!complete) return;
+        expect(read.length).toBe(text.length);
+        expect(Object.is(read.value, reference), `${text}: ${read.value} vs ${reference}`).toBe(true);
+      }),
+      { numRuns: 1000 },
+    );
+    for (const [text, value] of [['7.28', 7.28], ['0.1', 0.1], ['-0.35', -0.35], ['37,8', 37.8], ['123456789012345678', 123456789012345678], ['.5', 0.5], ['−3', -3]] as const) {
+      expect(leadingNumber(text).value).toBe(value);
+    }
   });
 });

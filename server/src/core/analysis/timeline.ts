@@ -41,6 +41,8 @@ interface CarryState {
   readonly vent: HeldMap;
   readonly gasUnit: Held | null;
   readonly lastTime: TimepointTime;
+  /** The carried layer of the values in force under this state, once built (see ValuesInForce). */
+  layer?: ReadonlyMap<string, InputValue> | undefined;
 }
 
 export interface Timeline {
@@ -153,7 +155,7 @@ function processBlock(nodes: readonly LineNode[], index: number, endLine: number
   const issues: ReadIssue[] = [];
   const header: StatedValue[] = [];
   const first = nodes[0];
-  const mutable = { ...stateIn };
+  const mutable: MutableState = { ...stateIn, layer: undefined };
   const seenInHeader = new Map<string, StatedValue>();
   const seenAtTimepoint = new Map<string, StatedValue>();
   let tp: { index: number; line: number | null; label: string; startLine: number; time: TimepointTime; stated: StatedValue[] } | null = null;
@@ -365,17 +367,13 @@ function isHereOnly(s: StatedValue): boolean {
   return sectionById(s.section).kind === 'measure' || fieldById(s.fieldId)?.reading === true;
 }
 
-/** The carried layer of each carried state (see ValuesInForce). */
-const carriedLayers = new WeakMap<CarryState, ReadonlyMap<string, InputValue>>();
-
+/** The carried layer of a state: the one before it when the held settings did not change. */
 function carriedLayer(state: CarryState, stateIn: CarryState): ReadonlyMap<string, InputValue> {
-  const known = carriedLayers.get(state);
-  if (known) return known;
+  if (state.layer) return state.layer;
   const unchanged = state.patient === stateIn.patient && state.place === stateIn.place && state.oxygen === stateIn.oxygen && state.vent === stateIn.vent;
-  const before = unchanged ? carriedLayers.get(stateIn) : undefined;
   let layer: ReadonlyMap<string, InputValue>;
-  if (before) {
-    layer = before;
+  if (unchanged && stateIn.layer) {
+    layer = stateIn.layer;
   } else {
     const built = new Map<string, InputValue>();
     for (const map of [state.patient, state.place, state.oxygen, state.vent]) {
@@ -383,7 +381,7 @@ function carriedLayer(state: CarryState, stateIn: CarryState): ReadonlyMap<strin
     }
     layer = built;
   }
-  carriedLayers.set(state, layer);
+  state.layer = layer;
   return layer;
 }
 

@@ -63,36 +63,32 @@ function validateDerived(list: readonly DerivedDefinition[]): readonly DerivedDe
 const byId: ReadonlyMap<string, DerivedDefinition> = new Map(DERIVED.map((d) => [d.id, d]));
 const TABLE: DerivedTable = { list: DERIVED, slots: new Map(DERIVED.map((d, i) => [d.id, i])) };
 
-/** For each field id, the slots of the definitions it anchors (a value is reported where an anchor is stated). */
-const ANCHORED: ReadonlyMap<string, readonly number[]> = (() => {
-  const out = new Map<string, number[]>();
+/** For each field id, a 32-bit mask of the slots of the definitions it anchors (a value is reported where an anchor is stated). */
+const ANCHORED: ReadonlyMap<string, number> = (() => {
+  if (DERIVED.length > 32) throw new Error('relevance masks hold 32 derived values (a 32-bit integer); use a wider mask');
+  const out = new Map<string, number>();
   DERIVED.forEach((d, slot) => {
-    for (const id of d.anchors) {
-      const list = out.get(id) ?? [];
-      list.push(slot);
-      out.set(id, list);
-    }
+    for (const id of d.anchors) out.set(id, (out.get(id) ?? 0) | (1 << slot));
   });
   return out;
 })();
-
 export function derivedDef(id: string): DerivedDefinition | undefined {
   return byId.get(id);
 }
 
 /**
- * Which definitions are worth reporting at this timepoint: those with an anchor input stated
- * here (in force with origin `here`). Read from the few values stated here rather than by
- * asking every definition about every anchor.
+ * Which definitions are worth reporting at this timepoint, as a bit mask of slots: those with an
+ * anchor input stated here (in force with origin `here`). Read from the few values stated here
+ * rather than by asking every definition about every anchor.
  */
-function relevantSlots(tp: Timepoint): boolean[] {
-  const relevant = new Array<boolean>(DERIVED.length).fill(false);
+function relevantSlots(tp: Timepoint): number {
+  let mask = 0;
   for (const s of tp.stated) {
     const slots = ANCHORED.get(s.fieldId);
-    if (!slots || tp.values.get(s.fieldId)?.origin.kind !== 'here') continue;
-    for (const slot of slots) relevant[slot] = true;
+    if (slots === undefined || (mask & slots) === slots) continue;
+    if (tp.values.get(s.fieldId)?.origin.kind === 'here') mask |= slots;
   }
-  return relevant;
+  return mask;
 }
 
 /**
@@ -101,7 +97,7 @@ function relevantSlots(tp: Timepoint): boolean[] {
  */
 export function derivedAt(tp: Timepoint, settings: Settings, id: string): DerivedValue | null {
   const slot = TABLE.slots.get(id);
-  if (slot === undefined || !relevantSlots(tp)[slot]) return null;
+  if (slot === undefined || (relevantSlots(tp) & (1 << slot)) === 0) return null;
   const r = new DeriveContext(tp, settings, TABLE).evaluateSlot(slot);
   return r && 'value' in r ? r : null;
 }
@@ -118,7 +114,7 @@ export function deriveTimepoint(tp: Timepoint, settings: Settings): TimepointDer
   const notApplicable: NotApplicable[] = [];
   const relevant = relevantSlots(tp);
   for (let slot = 0; slot < DERIVED.length; slot++) {
-    if (!relevant[slot]) continue;
+    if ((relevant & (1 << slot)) === 0) continue;
     const r = ctx.evaluateSlot(slot);
     if (!r) continue;
     if ('value' in r) derived.push(r);

@@ -106,15 +106,22 @@ export function unitById(id: string): UnitDef | undefined {
  * Every unit a written token may mean. An exact-case match wins over a case-folded one
  * (so `mL` and `ML` both read as millilitres, and `%` means whichever percent the field uses).
  */
+/** Units found for a spelling, kept (spellings that name a unit are few; others are not kept). */
+const spellingCache = new Map<string, readonly UnitDef[]>();
+const SPELLING_CACHE_LIMIT = 2000;
+
 export function unitsForSpelling(text: string): readonly UnitDef[] {
+  const known = spellingCache.get(text);
+  if (known) return known;
   const exact = byId.get(text);
   const folded = byLowerSpelling.get(text.toLowerCase()) ?? [];
-  if (exact) return [exact, ...folded.filter((u) => u !== exact)];
-  return folded;
+  const found = exact ? [exact, ...folded.filter((u) => u !== exact)] : folded;
+  if (found.length > 0 && spellingCache.size < SPELLING_CACHE_LIMIT) spellingCache.set(text, found);
+  return found;
 }
 
 export function isKnownUnitSpelling(text: string): boolean {
-  return unitsForSpelling(text).length > 0;
+  return byId.has(text) || byLowerSpelling.has(text.toLowerCase());
 }
 
 /** Converts between two units of one dimension; null when they do not share a dimension. */

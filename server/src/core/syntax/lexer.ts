@@ -75,8 +75,31 @@ export function leadingNumber(text: string, at = 0): NumberParts {
   } else if (intDigits === 0) {
     return { length: 0, value: NaN, decimalComma: false };
   }
-  const raw = text.slice(at, i).replace(',', '.').replace('−', '-');
-  const value = Number(raw);
+  const value = numberValue(text, at, intStart, i);
   if (!Number.isFinite(value)) return { length: 0, value: NaN, decimalComma: false };
   return { length: i - at, value, decimalComma };
+}
+
+const POWERS_OF_TEN = [1, 10, 100, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15];
+
+/**
+ * The value of a number already scanned: `[at, end)` holds an optional sign, then from
+ * `digitsStart` digits with at most one `.` or `,`. With up to 15 digits the digits form an
+ * exact integer and one division by an exact power of ten rounds once, so the result is the
+ * double `Number()` gives for the same text; longer numbers go through `Number()`.
+ */
+function numberValue(text: string, at: number, digitsStart: number, end: number): number {
+  let mantissa = 0;
+  let digits = 0;
+  let decimals = -1;
+  for (let k = digitsStart; k < end; k++) {
+    const c = text.charCodeAt(k);
+    if (c === 0x2e || c === 0x2c) { decimals = 0; continue; }
+    mantissa = mantissa * 10 + (c - 0x30);
+    digits++;
+    if (decimals >= 0) decimals++;
+  }
+  if (digits > 15) return Number(text.slice(at, end).replace(',', '.').replace('−', '-'));
+  const magnitude = decimals > 0 ? mantissa / POWERS_OF_TEN[decimals]! : mantissa;
+  return digitsStart > at && text.charCodeAt(at) !== 0x2b /* + */ ? -magnitude : magnitude;
 }
