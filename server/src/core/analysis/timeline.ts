@@ -156,8 +156,8 @@ function processBlock(nodes: readonly LineNode[], index: number, endLine: number
   const header: StatedValue[] = [];
   const first = nodes[0];
   const mutable: MutableState = { ...stateIn, layer: undefined };
-  const seenInHeader = new Map<string, StatedValue>();
-  const seenAtTimepoint = new Map<string, StatedValue>();
+  const seenInHeader = new Map<SectionId, Map<string, StatedValue>>();
+  const seenAtTimepoint = new Map<SectionId, Map<string, StatedValue>>();
   let tp: { index: number; line: number | null; label: string; startLine: number; time: TimepointTime; stated: StatedValue[] } | null = null;
   if (first?.kind === 'timepoint') {
     const time = timeOf(first, stateIn.lastTime, index === 0);
@@ -235,12 +235,17 @@ export function barometricInForce(place: ReadonlyMap<string, { stated: StatedVal
  * The same field twice in one section at one timepoint: the later value wins, the first is named.
  * `seen` holds the first value of each section and field at this timepoint (linear in the items).
  */
-function duplicates(section: SectionId, stated: readonly StatedValue[], seen: Map<string, StatedValue>, issues: ReadIssue[]): void {
+function duplicates(section: SectionId, stated: readonly StatedValue[], seen: Map<SectionId, Map<string, StatedValue>>, issues: ReadIssue[]): void {
+  if (stated.length === 0) return;
+  let inSection = seen.get(section);
+  if (!inSection) {
+    inSection = new Map<string, StatedValue>();
+    seen.set(section, inSection);
+  }
   for (const s of stated) {
-    const key = `${section}:${s.fieldId}`;
-    const earlier = seen.get(key);
+    const earlier = inSection.get(s.fieldId);
     if (!earlier) {
-      seen.set(key, s);
+      inSection.set(s.fieldId, s);
       continue;
     }
     issues.push({

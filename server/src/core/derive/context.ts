@@ -54,9 +54,17 @@ export function defineDerived(def: DerivedDef): DerivedDefinition {
   return { ...def, shownFormula: shownFormula(def.formula) };
 }
 
+/** Formula templates shown without braces, by template (templates are few: one or two per definition). */
+const shownFormulas = new Map<string, string>();
+
 /** A formula template without its braces: `{PaO2} ÷ {FiO2}` → `PaO2 ÷ FiO2`. */
 function shownFormula(template: string): string {
-  return template.indexOf('{') < 0 ? template : template.split('{').join('').split('}').join('');
+  if (template.indexOf('{') < 0) return template;
+  const known = shownFormulas.get(template);
+  if (known !== undefined) return known;
+  const shown = template.split('{').join('').split('}').join('');
+  if (shownFormulas.size < 1000) shownFormulas.set(template, shown);
+  return shown;
 }
 
 /** The registry as the context reads it: definitions in order, and each id's position. */

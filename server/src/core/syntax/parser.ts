@@ -52,10 +52,29 @@ export function splitLines(text: string): { lines: LineSlice[]; eol: NoteTree['e
 }
 
 export function parseNote(text: string): NoteTree {
-  const { lines, eol } = splitLines(text);
-  const nodes = new Array<LineNode>(lines.length);
-  for (let i = 0; i < lines.length; i++) nodes[i] = parseLine(lines[i]!.text, i);
-  return { lines: nodes, eol };
+  // As splitLines, without keeping the pieces: each line is parsed as it is cut. The next line
+  // end is found with indexOf (a native search) for each terminator.
+  const nodes: LineNode[] = [];
+  let eol: NoteTree['eol'] | null = null;
+  let start = 0;
+  let lf = text.indexOf('\n');
+  let cr = text.indexOf('\r');
+  while (lf >= 0 || cr >= 0) {
+    const end = cr < 0 || (lf >= 0 && lf < cr) ? lf : cr;
+    nodes.push(parseLine(text.slice(start, end), nodes.length));
+    let next = end + 1;
+    if (end === cr && lf === end + 1) {
+      eol ??= '\r\n';
+      next = end + 2;
+    } else {
+      eol ??= end === lf ? '\n' : '\r';
+    }
+    start = next;
+    if (lf >= 0 && lf < start) lf = text.indexOf('\n', start);
+    if (cr >= 0 && cr < start) cr = text.indexOf('\r', start);
+  }
+  nodes.push(parseLine(text.slice(start), nodes.length));
+  return { lines: nodes, eol: eol ?? '\n' };
 }
 
 /**
