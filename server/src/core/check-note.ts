@@ -38,39 +38,54 @@ export function runChecks(analysis: NoteAnalysis, settings: Settings, checks: re
   const findings: Finding[] = [];
   const disabled = new Set(settings.disabledChecks.map((d) => d.toLowerCase()));
   const enabled = checks.filter((c) => !disabled.has(c.code.toLowerCase()) && !disabled.has(c.alias));
-  const guard = (check: CheckDef, out: Finding[], body: () => void): void => {
-    try {
-      body();
-    } catch (error) {
-      out.push(toFinding(internalError, {
-        range: { start: { line: 0, character: 0 }, end: { line: 0, character: 0 } },
-        message: `Check ${check.code} (${check.alias}) failed on this note: ${error instanceof Error ? error.message : String(error)}. Other checks still ran.`,
-      }));
-    }
-  };
+  const failed = (check: CheckDef, error: unknown): Finding => toFinding(internalError, {
+    range: { start: { line: 0, character: 0 }, end: { line: 0, character: 0 } },
+    message: `Check ${check.code} (${check.alias}) failed on this note: ${error instanceof Error ? error.message : String(error)}. Other checks still ran.`,
+  });
   for (const check of enabled) {
     const run = check.run;
     if (!run) continue;
     const ctx: CheckContext = { analysis, settings, report: (r: Report) => findings.push(toFinding(check, r)) };
-    guard(check, findings, () => run(ctx));
+    try {
+      run(ctx);
+    } catch (error) {
+      findings.push(failed(check, error));
+    }
   }
   const perTimepoint = enabled.filter((c) => c.runTimepoint);
-  analysis.timeline.timepoints.forEach((timepoint, i) => {
+  // One context serves every timepoint check: the runner moves it from check to check and from
+  // timepoint to timepoint (a big note has thousands of timepoints and dozens of checks).
+  let current: CheckDef | null = null;
+  let own: Finding[] = [];
+  const ctx: { -readonly [K in keyof TimepointContext]: TimepointContext[K] } = {
+    analysis,
+    settings,
+    timepoint: analysis.timeline.timepoints[0]!,
+    derivation: { timepoint: 0, derived: [], missing: [], notApplicable: [], interpretations: [] },
+    report: (r: Report) => own.push(toFinding(current!, r)),
+  };
+  const timepoints = analysis.timeline.timepoints;
+  for (let i = 0; i < timepoints.length; i++) {
+    const timepoint = timepoints[i]!;
     const known = cache?.get(timepoint);
     if (known) {
       for (const f of known) findings.push(f);
-      return;
+      continue;
     }
-    const derivation = analysis.derivation(i);
-    const own: Finding[] = [];
+    ctx.timepoint = timepoint;
+    ctx.derivation = analysis.derivation(i);
+    own = [];
     for (const check of perTimepoint) {
-      const runTimepoint = check.runTimepoint!;
-      const ctx: TimepointContext = { analysis, settings, timepoint, derivation, report: (r: Report) => own.push(toFinding(check, r)) };
-      guard(check, own, () => runTimepoint(ctx));
+      current = check;
+      try {
+        check.runTimepoint!(ctx);
+      } catch (error) {
+        own.push(failed(check, error));
+      }
     }
     cache?.set(timepoint, own);
     for (const f of own) findings.push(f);
-  });
+  }
   findings.sort((a, b) => comparePositions(a.range.start, b.range.start) || a.code.localeCompare(b.code));
   return { analysis, findings, settings };
 }

@@ -75,6 +75,16 @@ export function headerLineCount(analysis: NoteAnalysis): number {
   return first ? first.startLine : analysis.tree.lines.length;
 }
 
-export function timepointLines(ctx: TimepointContext): readonly LineNode[] {
-  return ctx.analysis.tree.lines.slice(ctx.timepoint.startLine, ctx.timepoint.endLine + 1);
+/** Visits a timepoint's lines (by index: no copy of the list per check and timepoint). */
+export function forTimepointLines(ctx: TimepointContext, visit: (node: LineNode) => void): void {
+  const lines = ctx.analysis.tree.lines;
+  const end = Math.min(ctx.timepoint.endLine + 1, lines.length);
+  for (let i = ctx.timepoint.startLine; i < end; i++) visit(lines[i]!);
+}
+
+/** Visits the note's header lines (those before the first timepoint). */
+export function forHeaderLines(ctx: CheckContext, visit: (node: LineNode) => void): void {
+  const lines = ctx.analysis.tree.lines;
+  const end = headerLineCount(ctx.analysis);
+  for (let i = 0; i < end; i++) visit(lines[i]!);
 }

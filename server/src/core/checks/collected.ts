@@ -4,27 +4,26 @@
  */
 import type { ReadCheckAlias } from '../analysis/read-issues';
 import { lineFixToFix, toRange, type LineNode, type SyntaxCheckAlias } from '../syntax/tree';
-import { defineCheck, headerLineCount, timepointLines, type CheckContext, type CheckDef, type CheckDoc, type CheckTag } from './check';
+import { defineCheck, forHeaderLines, forTimepointLines, type CheckContext, type CheckDef, type CheckDoc, type CheckTag } from './check';
 import type { Severity } from '../types';
 
 const FORMAT_RULE = 'format rule (grammar/README.md)';
 
 function syntaxCheck(code: string, alias: SyntaxCheckAlias, title: string, severity: Severity, doc: CheckDoc): CheckDef {
-  const visit = (ctx: CheckContext, lines: readonly LineNode[]) => {
-    for (const node of lines) {
-      for (const issue of node.issues) {
-        if (issue.check !== alias) continue;
-        ctx.report({ range: toRange(node.line, issue.span), message: issue.message, fixes: issue.fixes.map((f) => lineFixToFix(node.line, f)) });
-      }
+  const visit = (ctx: CheckContext) => (node: LineNode) => {
+    if (node.issues.length === 0) return;
+    for (const issue of node.issues) {
+      if (issue.check !== alias) continue;
+      ctx.report({ range: toRange(node.line, issue.span), message: issue.message, fixes: issue.fixes.map((f) => lineFixToFix(node.line, f)) });
     }
   };
   return defineCheck({
     code, alias, title, severity, tags: ['syntax'], doc, source: FORMAT_RULE,
     run(ctx) {
-      visit(ctx, ctx.analysis.tree.lines.slice(0, headerLineCount(ctx.analysis)));
+      forHeaderLines(ctx, visit(ctx));
     },
     runTimepoint(ctx) {
-      visit(ctx, timepointLines(ctx));
+      forTimepointLines(ctx, visit(ctx));
     },
   });
 }

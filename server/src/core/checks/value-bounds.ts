@@ -30,11 +30,6 @@ function valueCheck(test: (ctx: CheckContext, stated: StatedValue, barometricMmh
   };
 }
 
-function numbersOf(s: StatedValue): number[] {
-  if (s.value !== null) return [s.value];
-  return s.parts ? [...s.parts] : [];
-}
-
 function describe(bounds: Bounds, field: FieldDef, s: StatedValue): string {
   const unit = unitById(s.readUnit ?? field.unit ?? '') ?? unitById(field.unit ?? '');
   const canonical = unitById(field.unit ?? '');
@@ -47,8 +42,17 @@ function describe(bounds: Bounds, field: FieldDef, s: StatedValue): string {
   return `at most ${show(bounds.max ?? 0)}`;
 }
 
+/** Whether any number of the value lies outside the bounds (a loop: this runs for every stated value). */
 function outOfBounds(s: StatedValue, bounds: Bounds | undefined): boolean {
-  return numbersOf(s).some((v) => !within(v, bounds));
+  if (s.value !== null) return !within(s.value, bounds);
+  if (s.parts) for (const v of s.parts) if (!within(v, bounds)) return true;
+  return false;
+}
+
+function noneNegative(s: StatedValue): boolean {
+  if (s.value !== null) return s.value >= 0;
+  if (s.parts) for (const v of s.parts) if (v < 0) return false;
+  return true;
 }
 
 export const impossibleValue = defineCheck({
@@ -66,7 +70,7 @@ export const impossibleValue = defineCheck({
   ...valueCheck((ctx, stated) => {
     const field = fieldById(stated.fieldId);
     if (!field?.hard || OWN_CHECKS.has(field.id) || stated.readUnit === null || stated.unitDoubt) return;
-    if (SATURATIONS.has(field.id) && numbersOf(stated).every((v) => v >= 0)) return;
+    if (SATURATIONS.has(field.id) && noneNegative(stated)) return;
     if (!outOfBounds(stated, field.hard)) return;
     ctx.report({
       range: toRange(stated.line, stated.item.value?.span ?? stated.item.span),
