@@ -11,7 +11,7 @@ function snapshot(r: NoteResult): unknown {
   return {
     findings: r.findings,
     timepoints: r.analysis.timeline.timepoints.map((tp) => ({ ...tp, values: [...tp.values.entries()].map(([k, v]) => [k, v.stated.value, v.stated.word, v.origin]) , stated: tp.stated.map((s) => [s.fieldId, s.value, s.line]) })),
-    derivations: allDerivations(r.analysis),
+    derivations: allDerivations(r.analysis).map((d) => ({ timepoint: d.timepoint, derived: d.derived, missing: d.missing, notApplicable: d.notApplicable, interpretations: d.interpretations })),
   };
 }
 

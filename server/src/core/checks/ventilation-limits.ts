@@ -2,6 +2,7 @@
 import { SOURCES } from '../physiology';
 import { toRange } from '../syntax/tree';
 import { formatNumber } from '../util/format';
+import { derivedValueOf } from '../derive/registry';
 import { defineCheck, type TimepointContext } from './check';
 
 /** Upper end of the tidal-volume range of the ARDS Network protocol (mL/kg PBW). */
@@ -12,7 +13,7 @@ export const PLATEAU_LIMIT_CMH2O = 30;
 export const DRIVING_PRESSURE_LIMIT_CMH2O = 15;
 
 function derivedAbove(ctx: TimepointContext, id: string, limit: number, anchorField: string, message: (v: number) => string): void {
-  const d = ctx.derivation.derived.find((x) => x.id === id);
+  const d = derivedValueOf(ctx.derivation, id);
   const anchor = ctx.timepoint.values.get(anchorField);
   if (!d || d.value <= limit + 1e-9 || !anchor || anchor.origin.kind !== 'here') return;
   ctx.report({ range: toRange(anchor.stated.line, anchor.stated.item.span), message: message(d.value) });

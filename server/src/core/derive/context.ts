@@ -285,7 +285,8 @@ class ComputedValue implements DerivedValue {
   readonly usesCarried: boolean;
   readonly line: number | null;
   private readonly template: string;
-  private shown: string | null = null;
+  // An ES private field: not an own property, so comparing two values ignores whether it was built.
+  #shown: string | null = null;
 
   constructor(def: DerivedDefinition, outcome: ValueOutcome, carried: boolean, line: number | null) {
     this.id = def.id;
@@ -307,12 +308,12 @@ class ComputedValue implements DerivedValue {
   }
 
   get substituted(): string {
-    if (this.shown === null) {
+    if (this.#shown === null) {
       const range = this.range;
       const result = range ? `${formatNumber(range.low, this.decimals)}–${formatNumber(range.high, this.decimals)}` : formatNumber(this.value, this.decimals);
-      this.shown = `${substitute(this.template, this.inputs)} = ${result}${this.unit ? ` ${this.unit}` : ''}`;
+      this.#shown = `${substitute(this.template, this.inputs)} = ${result}${this.unit ? ` ${this.unit}` : ''}`;
     }
-    return this.shown;
+    return this.#shown;
   }
 }
 

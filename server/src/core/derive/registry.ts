@@ -11,7 +11,7 @@ import { DeriveContext, type DerivedDefinition, type DerivedTable } from './cont
 import * as gas from './gas-exchange';
 import { interpret } from './interpret';
 import * as mech from './mechanics';
-import type { DerivedValue, MissingValue, NotApplicable, TimepointDerivation } from './model';
+import type { DerivedValue, Interpretation, MissingValue, NotApplicable, TimepointDerivation } from './model';
 import * as transport from './oxygen-transport';
 
 export const DERIVED: readonly DerivedDefinition[] = validateDerived([
@@ -106,20 +106,67 @@ export function derivedAt(tp: Timepoint, settings: Settings, id: string): Derive
  * Everything derived at one timepoint. A value is reported only where one of its anchor inputs
  * was stated at this timepoint (so a carried PEEP does not repeat a driving pressure at every
  * later timepoint); a missing input is named only then too.
+ *
+ * Computed on first read, part by part: a check that needs one value (`derivedValueOf`) or the
+ * readings does not pay for the rest of the timepoint's values.
  */
-export function deriveTimepoint(tp: Timepoint, settings: Settings): TimepointDerivation {
-  const ctx = new DeriveContext(tp, settings, TABLE);
-  const derived: DerivedValue[] = [];
-  const missing: MissingValue[] = [];
-  const notApplicable: NotApplicable[] = [];
-  const relevant = relevantSlots(tp);
-  for (let slot = 0; slot < DERIVED.length; slot++) {
-    if ((relevant & (1 << slot)) === 0) continue;
-    const r = ctx.evaluateSlot(slot);
-    if (!r) continue;
-    if ('value' in r) derived.push(r);
-    else if ('needs' in r) missing.push(r);
-    else notApplicable.push(r);
+class TimepointValues implements TimepointDerivation {
+  private readonly ctx: DeriveContext;
+  private relevant: number | null = null;
+  private lists: { derived: DerivedValue[]; missing: MissingValue[]; notApplicable: NotApplicable[] } | null = null;
+  private readings: readonly Interpretation[] | null = null;
+
+  constructor(private readonly tp: Timepoint, private readonly settings: Settings) {
+    this.ctx = new DeriveContext(tp, settings, TABLE);
   }
-  return { timepoint: tp.index, derived, missing, notApplicable, interpretations: interpret(ctx, settings) };
+
+  get timepoint(): number {
+    return this.tp.index;
+  }
+
+  private mask(): number {
+    return (this.relevant ??= relevantSlots(this.tp));
+  }
+
+  private all(): { derived: DerivedValue[]; missing: MissingValue[]; notApplicable: NotApplicable[] } {
+    if (this.lists) return this.lists;
+    const lists = { derived: [] as DerivedValue[], missing: [] as MissingValue[], notApplicable: [] as NotApplicable[] };
+    const relevant = this.mask();
+    for (let slot = 0; slot < DERIVED.length; slot++) {
+      if ((relevant & (1 << slot)) === 0) continue;
+      const r = this.ctx.evaluateSlot(slot);
+      if (!r) continue;
+      if ('value' in r) lists.derived.push(r);
+      else if ('needs' in r) lists.missing.push(r);
+      else lists.notApplicable.push(r);
+    }
+    this.lists = lists;
+    return lists;
+  }
+
+  get derived(): readonly DerivedValue[] { return this.all().derived; }
+  get missing(): readonly MissingValue[] { return this.all().missing; }
+  get notApplicable(): readonly NotApplicable[] { return this.all().notApplicable; }
+
+  get interpretations(): readonly Interpretation[] {
+    return (this.readings ??= interpret(this.ctx, this.settings));
+  }
+
+  /** The value `id` when it is reported here (the same as finding it in `derived`). */
+  value(id: string): DerivedValue | null {
+    const slot = TABLE.slots.get(id);
+    if (slot === undefined || (this.mask() & (1 << slot)) === 0) return null;
+    const r = this.ctx.evaluateSlot(slot);
+    return r && 'value' in r ? r : null;
+  }
+}
+
+export function deriveTimepoint(tp: Timepoint, settings: Settings): TimepointDerivation {
+  return new TimepointValues(tp, settings);
+}
+
+/** A derived value reported at a timepoint, without deriving the rest when the derivation allows it. */
+export function derivedValueOf(derivation: TimepointDerivation, id: string): DerivedValue | null {
+  if (derivation instanceof TimepointValues) return derivation.value(id);
+  return derivation.derived.find((d) => d.id === id) ?? null;
 }
