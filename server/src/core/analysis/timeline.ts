@@ -16,8 +16,8 @@
  * held values when they are equal, so an edit to one timepoint recomputes only that timepoint
  * and those that depend on what it carries.
  */
-import { fieldById } from '../fields/registry';
-import { sectionById, type SectionId } from '../fields/sections';
+import { fieldById, FIELDS } from '../fields/registry';
+import { SECTIONS, sectionById, type SectionId } from '../fields/sections';
 import type { Settings } from '../settings';
 import type { LineNode, NoteTree, SectionLine, TimepointLine } from '../syntax/tree';
 import { barometricFromAltitude } from './ambient';
@@ -262,10 +262,16 @@ function duplicates(section: SectionId, stated: readonly StatedValue[], seen: Ma
 type MutableState = { -readonly [K in keyof CarryState]: CarryState[K] };
 
 function apply(section: SectionId, stated: readonly StatedValue[], tp: number, label: string, state: MutableState): void {
+  // A line of readings only (`vent plateau 24`) holds nothing: the held map stays the same
+  // object, so the carried layer and the reuse of later timepoints see no change.
   const hold = (base: HeldMap): HeldMap => {
-    const next = new Map(base);
-    for (const s of stated) if (!fieldById(s.fieldId)?.reading) next.set(s.fieldId, { stated: s, timepoint: tp, label });
-    return next;
+    let next: Map<string, Held> | null = null;
+    for (const s of stated) {
+      if (READING_FIELDS.has(s.fieldId)) continue;
+      next ??= new Map(base);
+      next.set(s.fieldId, { stated: s, timepoint: tp, label });
+    }
+    return next ?? base;
   };
   switch (section) {
     case 'patient': state.patient = hold(state.patient); break;
@@ -367,9 +373,12 @@ class ValuesInForce implements ReadonlyMap<string, InputValue> {
   }
 }
 
+const READING_FIELDS: ReadonlySet<string> = new Set(FIELDS.filter((f) => f.reading).map((f) => f.id));
+const MEASURE_SECTIONS: ReadonlySet<SectionId> = new Set(SECTIONS.filter((s) => s.kind === 'measure').map((s) => s.id));
+
 /** Measurements and device readings: in force only where stated (the last of a field wins). */
 function isHereOnly(s: StatedValue): boolean {
-  return sectionById(s.section).kind === 'measure' || fieldById(s.fieldId)?.reading === true;
+  return MEASURE_SECTIONS.has(s.section) || READING_FIELDS.has(s.fieldId);
 }
 
 /** The carried layer of a state: the one before it when the held settings did not change. */
@@ -392,10 +401,14 @@ function carriedLayer(state: CarryState, stateIn: CarryState): ReadonlyMap<strin
 
 function freeze(b: { index: number; line: number | null; label: string; startLine: number; time: TimepointTime; stated: StatedValue[] }, endLine: number, state: CarryState, stateIn: CarryState, settings: Settings): Timepoint {
   const own = new Map<string, InputValue>();
-  // Settings stated at this timepoint (still held at its end) are in force here with their line.
-  for (const map of [state.patient, state.place, state.oxygen, state.vent]) {
-    for (const held of map.values()) {
-      if (held.timepoint === b.index) own.set(held.stated.fieldId, { stated: held.stated, origin: originOf(held, b.index) });
+  // Settings stated at this timepoint (still held at its end) are in force here with their line;
+  // when no held map changed, none was.
+  const changed = state.patient !== stateIn.patient || state.place !== stateIn.place || state.oxygen !== stateIn.oxygen || state.vent !== stateIn.vent;
+  if (changed) {
+    for (const map of [state.patient, state.place, state.oxygen, state.vent]) {
+      for (const held of map.values()) {
+        if (held.timepoint === b.index) own.set(held.stated.fieldId, { stated: held.stated, origin: originOf(held, b.index) });
+      }
     }
   }
   // Measurements and device readings stated here (the last of a field wins).
