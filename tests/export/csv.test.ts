@@ -4,7 +4,7 @@
 import { parse } from 'csv-parse/sync';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { csvField, csvHeader, csvRecord, exportColumns, timepointRows, toCsv, type ColumnDef, type Row } from '../../server/src/core/export';
+import { csvCells, csvField, csvHeader, csvRecord, exportColumns, timepointCells, timepointRows, toCsv, type ColumnDef, type Row } from '../../server/src/core/export';
 import { checked, samples } from './helpers';
 
 const plain = { redactProse: false, shiftDays: 0 } as const;
@@ -48,6 +48,16 @@ describe('CSV text', () => {
     const rows = all.flatMap((s) => timepointRows(s.path, s.result, plain));
     expect(toCsv(columns, rows)).toBe(csvHeader(columns) + rows.map((r) => csvRecord(columns, r)).join(''));
     expectSameRows(columns, rows, toCsv(columns, rows));
+  });
+
+  it('writes the same records from cells in column order as from keyed rows (what the CLI streams)', () => {
+    const columns = exportColumns();
+    for (const s of samples()) {
+      const cells = timepointCells(s.path, s.result, plain);
+      const rows = timepointRows(s.path, s.result, plain);
+      expect(cells.map(csvCells)).toEqual(rows.map((r) => csvRecord(columns, r)));
+      expect(cells.every((c) => c.length === columns.length)).toBe(true);
+    }
   });
 
   it.each(samples().map((s) => [s.name, s] as const))('%s reads back value by value', (_name, s) => {

@@ -5,8 +5,8 @@
  */
 import { z } from 'zod';
 import type { NoteResult } from '../core/check-note';
-import { csvHeader, csvRecord } from '../core/export/csv';
-import { exportColumns, timepointRows } from '../core/export/columns';
+import { csvCells, csvHeader } from '../core/export/csv';
+import { exportColumns, timepointCells } from '../core/export/columns';
 import { anchorProblem, toFhirBundle } from '../core/export/fhir';
 import { toJsonl } from '../core/export/jsonl';
 import { EXIT, HELP, parse, UsageError, validate, type Io } from './args';
@@ -27,8 +27,7 @@ const exportOptions = z.object({
 export const exportRenderer: ExportRenderer = (path: string, result: NoteResult, task) => {
   const options = { redactProse: task.redactProse, shiftDays: task.shiftDays };
   if (task.format === 'csv') {
-    const columns = exportColumns();
-    return timepointRows(path, result, options).map((row) => csvRecord(columns, row)).join('');
+    return timepointCells(path, result, options).map(csvCells).join('');
   }
   if (task.format === 'jsonl') return toJsonl(path, result, options);
   return toFhirBundle(path, result, { ...options, ...(task.anchor ? { anchor: task.anchor } : {}) });

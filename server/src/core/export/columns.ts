@@ -320,8 +320,11 @@ export function firstKnownMinutes(result: NoteResult): number | null {
   return null;
 }
 
-/** One row per timepoint of the note, keyed by column name (every column present, null when empty). */
-export function timepointRows(path: string, result: NoteResult, options: ExportOptions): Row[] {
+/**
+ * One list of cells per timepoint of the note, in column order (`exportColumns()`), null when
+ * empty. What CSV writes, without building a keyed object per row.
+ */
+export function timepointCells(path: string, result: NoteResult, options: ExportOptions): Cell[][] {
   assertExportOptions(options);
   const firstMinutes = firstKnownMinutes(result);
   const gasUnitAt = gasUnits(result);
@@ -329,8 +332,17 @@ export function timepointRows(path: string, result: NoteResult, options: ExportO
   return result.analysis.timeline.timepoints.map((timepoint, i) => {
     const derived = new Map(result.analysis.derivation(timepoint.index).derived.map((d) => [d.id, d]));
     const context: RowContext = { path, timepoint, derived, findings: findingsAt[i] ?? [], firstMinutes, gasUnit: gasUnitAt[i] ?? result.settings.gasUnit, label: writtenLabel(result, timepoint), options };
+    const cells = new Array<Cell>(COLUMNS.length);
+    for (let k = 0; k < COLUMNS.length; k++) cells[k] = COLUMNS[k]!.cell(context);
+    return cells;
+  });
+}
+
+/** One row per timepoint of the note, keyed by column name (every column present, null when empty). */
+export function timepointRows(path: string, result: NoteResult, options: ExportOptions): Row[] {
+  return timepointCells(path, result, options).map((cells) => {
     const row: Row = {};
-    for (const column of COLUMNS) row[column.name] = column.cell(context);
+    for (let k = 0; k < COLUMNS.length; k++) row[COLUMNS[k]!.name] = cells[k]!;
     return row;
   });
 }

@@ -32,6 +32,13 @@ export function csvRecord(columns: readonly ColumnDef[], row: Readonly<Row>): st
   return `${columns.map((c) => csvField(row[c.name])).join(',')}\n`;
 }
 
+/** One record of cells already in column order (`timepointCells`), ending with `\n`. */
+export function csvCells(cells: readonly (Cell | undefined)[]): string {
+  let out = '';
+  for (let k = 0; k < cells.length; k++) out += k === 0 ? csvField(cells[k]) : `,${csvField(cells[k])}`;
+  return `${out}\n`;
+}
+
 /** A whole CSV file: the header, then one record per row. */
 export function toCsv(columns: readonly ColumnDef[], rows: readonly Readonly<Row>[]): string {
   return csvHeader(columns) + rows.map((row) => csvRecord(columns, row)).join('');

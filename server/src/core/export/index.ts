@@ -13,8 +13,8 @@
  * To add a format: a new file here taking `(path, result, options)`, exported below, with golden
  * files under tests/golden/ and a schema or read-back test under tests/export/.
  */
-export { exportColumns, timepointRows, findingsByTimepoint, findingsOfTimepoint, writtenLabel, RANGE_DERIVED_IDS, type Cell, type ColumnDef, type ColumnKind, type ExportOptions, type Row } from './columns';
-export { csvField, csvHeader, csvRecord, toCsv } from './csv';
+export { exportColumns, timepointCells, timepointRows, findingsByTimepoint, findingsOfTimepoint, writtenLabel, RANGE_DERIVED_IDS, type Cell, type ColumnDef, type ColumnKind, type ExportOptions, type Row } from './columns';
+export { csvCells, csvField, csvHeader, csvRecord, toCsv } from './csv';
 export { jsonlRecords, toJsonl, type JsonlFinding, type JsonlRecord } from './jsonl';
 export {
   anchorProblem,
