@@ -23,7 +23,11 @@ export function isDigit(code: number): boolean {
   return code >= 0x30 && code <= 0x39;
 }
 
-export function chunkLine(body: string, from = 0): Chunk[] {
+/**
+ * `intern` may swap a chunk's text for an equal string kept elsewhere (the words of the format:
+ * section names, keys, units), so a big note does not hold a copy of `hr` per line.
+ */
+export function chunkLine(body: string, from = 0, intern?: (text: string) => string): Chunk[] {
   const chunks: Chunk[] = [];
   let i = from;
   let sawComma = false;
@@ -43,7 +47,8 @@ export function chunkLine(body: string, from = 0): Chunk[] {
       }
       i++;
     }
-    chunks.push({ text: body.slice(start, i), span: { start, end: i }, afterComma: sawComma });
+    const text = body.slice(start, i);
+    chunks.push({ text: intern ? intern(text) : text, span: { start, end: i }, afterComma: sawComma });
     sawComma = false;
   }
   return chunks;

@@ -3,9 +3,9 @@
  * becomes a syntax issue on that node. Lines are parsed independently, so a changed line can
  * be re-parsed alone (see `parseLine`). Linear in the length of the text.
  */
-import { fieldFor } from '../fields/registry';
+import { fieldFor, FIELDS } from '../fields/registry';
 import { SECTIONS, sectionByName, type SectionId } from '../fields/sections';
-import { isKnownUnitSpelling } from '../fields/units';
+import { isKnownUnitSpelling, UNITS } from '../fields/units';
 import { closest } from '../util/suggest';
 import { chunkLine, isDigit, leadingNumber, type Chunk } from './lexer';
 import type {
@@ -77,6 +77,20 @@ export function parseNote(text: string): NoteTree {
   return { lines: nodes, eol: eol ?? '\n' };
 }
 
+/** The words of the format, kept once (see chunkLine's `intern`). */
+const VOCABULARY: ReadonlyMap<string, string> = (() => {
+  const words = new Map<string, string>();
+  const add = (w: string) => { words.set(w, w); };
+  for (const s of SECTIONS) { add(s.id); for (const a of s.aliases) add(a); }
+  for (const f of FIELDS) { for (const a of f.aliases) add(a); for (const w of Object.keys(f.words ?? {})) add(w); }
+  for (const u of UNITS) { add(u.id); for (const a of u.aliases) add(a); }
+  return words;
+})();
+
+function intern(text: string): string {
+  return text.length <= 12 ? (VOCABULARY.get(text) ?? text) : text;
+}
+
 /**
  * Shared empty lists: most lines have no issues, and a note line's node must stay small (a big
  * note has tens of thousands of them). Frozen, so sharing is safe.
@@ -98,7 +112,7 @@ function parseLineUnsafe(text: string, line: number): LineNode {
   const bodyEnd = hash >= 0 ? hash : text.length;
   const comment: Token | null = hash >= 0 ? { text: text.slice(hash), span: { start: hash, end: text.length } } : null;
   const body = hash >= 0 ? text.slice(0, bodyEnd) : text;
-  const chunks = chunkLine(body);
+  const chunks = chunkLine(body, 0, intern);
   const first = chunks[0];
   if (!first) return { kind: 'blank', line, text, comment, issues: NO_ISSUES };
 
