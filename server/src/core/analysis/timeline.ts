@@ -76,7 +76,7 @@ export interface TimelineCache {
 }
 
 const EMPTY: HeldMap = new Map();
-const START_STATE: CarryState = { patient: EMPTY, place: EMPTY, oxygen: EMPTY, vent: EMPTY, gasUnit: null, lastTime: { day: null, minutes: null } };
+const START_STATE: CarryState = Object.freeze({ patient: EMPTY, place: EMPTY, oxygen: EMPTY, vent: EMPTY, gasUnit: null, lastTime: { day: null, minutes: null }, layer: new Map<string, InputValue>() });
 
 export function buildTimeline(tree: NoteTree, settings: Settings): Timeline {
   return buildTimelineIncremental(tree, settings, null).timeline;
