@@ -5,11 +5,22 @@
  */
 import type { Span } from './tree';
 
-export interface Chunk {
-  readonly text: string;
-  readonly span: Span;
-  /** A comma separated this chunk from the previous one. */
-  readonly afterComma: boolean;
+/**
+ * A chunk of a line: its text and where it is. A chunk is its own span (`span` returns the chunk),
+ * so a chunk kept as a token in the tree is one object, not two: a big note has one per word.
+ */
+export class Chunk implements Span {
+  constructor(
+    readonly text: string,
+    readonly start: number,
+    readonly end: number,
+    /** A comma separated this chunk from the previous one. */
+    readonly afterComma: boolean,
+  ) {}
+
+  get span(): Span {
+    return this;
+  }
 }
 
 export function isBlank(code: number): boolean {
@@ -48,7 +59,7 @@ export function chunkLine(body: string, from = 0, intern?: (text: string) => str
       i++;
     }
     const text = body.slice(start, i);
-    chunks.push({ text: intern ? intern(text) : text, span: { start, end: i }, afterComma: sawComma });
+    chunks.push(new Chunk(intern ? intern(text) : text, start, i, sawComma));
     sawComma = false;
   }
   return chunks;

@@ -7,7 +7,7 @@ import { fieldFor, FIELDS } from '../fields/registry';
 import { SECTIONS, sectionByName, type SectionId } from '../fields/sections';
 import { isKnownUnitSpelling, UNITS } from '../fields/units';
 import { closest } from '../util/suggest';
-import { chunkLine, isDigit, leadingNumber, type Chunk } from './lexer';
+import { Chunk, chunkLine, isDigit, leadingNumber } from './lexer';
 import type {
   ItemNode,
   LineFix,
@@ -168,7 +168,7 @@ function parseTimepoint(body: string, chunks: Chunk[], line: number, text: strin
   const marker: Token = { text: '@', span: { start: first.span.start, end: first.span.start + 1 } };
   // `@07:40` is read like `@ 07:40`.
   const rest: Chunk[] = [];
-  if (first.text.length > 1) rest.push({ text: first.text.slice(1), span: { start: first.span.start + 1, end: first.span.end }, afterComma: false });
+  if (first.text.length > 1) rest.push(new Chunk(first.text.slice(1), first.start + 1, first.end, false));
   rest.push(...chunks.slice(1));
 
   let time: TimeSpec | null = null;
