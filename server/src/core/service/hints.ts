@@ -164,18 +164,38 @@ export function inlayHints(result: NoteResult, lines: LineSpan, options: HintOpt
       const entries = cats.get(category);
       if (!entries || entries.length === 0) continue;
       const label = entries.map((e) => e.label).join(' · ');
-      hints.push({
+      hints.push(new Hint(
         position,
-        label: first ? label : `· ${label}`,
-        tooltipMarkdown: tooltip(entries),
+        first ? label : `· ${label}`,
+        entries,
         category,
-        derivedIds: entries.flatMap((e) => (e.reading ? [ACID_BASE_READING_ID, ...e.values.map((v) => v.id)] : e.values.map((v) => v.id))),
-        paddingLeft: true,
-      });
+        entries.flatMap((e) => (e.reading ? [ACID_BASE_READING_ID, ...e.values.map((v) => v.id)] : e.values.map((v) => v.id))),
+      ));
       first = false;
     }
   }
   return hints;
+}
+
+/** A hint whose tooltip is written when first read (clients that resolve tooltips read few). */
+class Hint implements InlayHintInfo {
+  readonly paddingLeft = true;
+  readonly #entries: readonly Entry[];
+  #tooltip: string | null = null;
+
+  constructor(
+    readonly position: InlayHintInfo['position'],
+    readonly label: string,
+    entries: readonly Entry[],
+    readonly category: HintCategory,
+    readonly derivedIds: string[],
+  ) {
+    this.#entries = entries;
+  }
+
+  get tooltipMarkdown(): string {
+    return (this.#tooltip ??= tooltip(this.#entries));
+  }
 }
 
 function tooltip(entries: readonly Entry[]): string {
