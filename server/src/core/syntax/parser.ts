@@ -88,7 +88,9 @@ const VOCABULARY: ReadonlyMap<string, string> = (() => {
 })();
 
 function intern(text: string): string {
-  return text.length <= 12 ? (VOCABULARY.get(text) ?? text) : text;
+  // Numbers are never words of the format: only chunks that start with a letter are looked up.
+  const c = text.charCodeAt(0) | 0x20;
+  return text.length <= 12 && c >= 0x61 && c <= 0x7a ? (VOCABULARY.get(text) ?? text) : text;
 }
 
 /**
