@@ -1,0 +1,36 @@
+// Where the time of a full analysis goes, stage by stage, on the generated 10,000-line note of
+// `npm run bench`: parse, timeline (values read and carried), checks (which derive what they
+// need). Prints medians and minimums of 21 runs; asserts nothing. `npm run bench:stages`.
+// The gap between a stage's median and its minimum is mostly garbage collection.
+import { build } from 'esbuild';
+import { rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { pathToFileURL } from 'node:url';
+import { generateNote } from './generate.mjs';
+
+const outfile = join(tmpdir(), `pneumark-stages-${process.pid}.mjs`);
+await build({ entryPoints: [new URL('./stages-entry.ts', import.meta.url).pathname], bundle: true, platform: 'node', format: 'esm', outfile, logLevel: 'error' });
+const m = await import(pathToFileURL(outfile).href);
+rmSync(outfile, { force: true });
+
+const text = generateNote(Number(process.env.BENCH_TIMEPOINTS ?? 2000));
+const settings = m.withDefaults({});
+const times = { parse: [], timeline: [], checks: [], total: [] };
+for (let i = 0; i < 21; i++) {
+  const t0 = performance.now();
+  const tree = m.parseNote(text);
+  const t1 = performance.now();
+  const timeline = m.buildTimeline(tree, settings);
+  const t2 = performance.now();
+  m.runChecks({ tree, timeline, derivation: m.deriverFor(timeline, settings) }, settings);
+  const t3 = performance.now();
+  times.parse.push(t1 - t0);
+  times.timeline.push(t2 - t1);
+  times.checks.push(t3 - t2);
+  times.total.push(t3 - t0);
+}
+const sorted = (a) => [...a].sort((x, y) => x - y);
+console.log(`Pneumark analysis stages: ${text.split('\n').length} lines, Node ${process.version}`);
+console.log(`${'stage'.padEnd(10)} ${'median'.padStart(10)} ${'min'.padStart(10)}`);
+for (const [stage, xs] of Object.entries(times)) console.log(`${stage.padEnd(10)} ${`${sorted(xs)[10].toFixed(1)} ms`.padStart(10)} ${`${sorted(xs)[0].toFixed(1)} ms`.padStart(10)}`);
