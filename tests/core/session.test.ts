@@ -6,6 +6,8 @@ import { allDerivations } from '../../server/src/core/analysis/analyse';
 import { checkNote, type NoteResult } from '../../server/src/core/check-note';
 import { NoteSession } from '../../server/src/core/session';
 import { readFileSync } from 'node:fs';
+import { setFlagsFromString } from 'node:v8';
+import { runInNewContext } from 'node:vm';
 
 function snapshot(r: NoteResult): unknown {
   return {
@@ -106,5 +108,31 @@ describe('NoteSession', () => {
     const b = session.update(base);
     expect(b).not.toBe(a);
     expect(snapshot(b)).toEqual(snapshot(checkNote(base, { alveolarEquation: 'full' })));
+  });
+});
+
+describe('NoteSession memory', () => {
+  it('keeps only the changed lines after an edit, not another copy of the whole note (100 edits of a 300 KB note)', () => {
+    setFlagsFromString('--expose-gc');
+    const gc = runInNewContext('gc') as () => void;
+    const block = (i: number) => [`@ day ${1 + Math.floor(i / 24)} ${String(i % 24).padStart(2, '0')}:00  hour ${i + 1}`, `vitals    hr ${60 + (i % 40)}, rr 18, spo2 95 %, temp 37.1 C, bp 120/70`, 'vent      plateau 22, peak 28, map 12', `abg       7.38/${38 + (i % 6)}/90/24, lactate 1.2`, 'note      turned and settled', ''];
+    const lines = ['patient   age 61 y, sex male, height 176 cm', 'place     altitude 300 m', ''];
+    for (let i = 0; i < 2000; i++) lines.push(...block(i));
+    const session = new NoteSession();
+    session.update(lines.join('\n'));
+    gc();
+    gc();
+    const before = process.memoryUsage().heapUsed;
+    const vitals = lines.flatMap((l, i) => (l.startsWith('vitals') ? [i] : []));
+    for (let e = 0; e < 100; e++) {
+      const k = vitals[(e * 37) % vitals.length]!;
+      lines[k] = lines[k]!.replace(/hr (\d+)/, (_m, n: string) => `hr ${Number(n) + 1}`);
+      session.update(lines.join('\n'));
+    }
+    gc();
+    gc();
+    const grown = process.memoryUsage().heapUsed - before;
+    // Holding a view of each version of the note would keep 100 × 300 KB = 30 MB.
+    expect(grown).toBeLessThan(8 * 1048576);
   });
 });

@@ -101,7 +101,7 @@ export class NoteSession {
     const delta = text.length - old.length;
     const midStart = oldStarts[head]!;
     const midEnd = tail > 0 ? oldStarts[m - tail]! + delta : text.length;
-    const split = splitLines(text.slice(midStart, midEnd));
+    const split = splitLines(detached(text.slice(midStart, midEnd)));
     // With lines after the stretch, the stretch ends with a terminator: its empty last piece is not a line.
     const middle = tail > 0 ? split.lines.slice(0, -1) : split.lines;
     const n = head + middle.length + tail;
@@ -125,6 +125,16 @@ export class NoteSession {
     this.starts = starts;
     return { tree: { lines: nodes, eol: firstEol(text) }, parsed: middle.length };
   }
+}
+
+/**
+ * The same text in a string of its own. A substring in V8 can be a view into the string it was
+ * cut from; the changed lines are kept in the tree for as long as they stay unchanged, and as
+ * views they would keep every version of the whole note alive (hundreds of KB per edit). Slicing
+ * a concatenation copies it first, so the result only holds the changed stretch.
+ */
+function detached(stretch: string): string {
+  return ` ${stretch}`.slice(1);
 }
 
 /** Characters compared at once when looking for the changed stretch (string equality is a block compare). */
