@@ -86,7 +86,8 @@ export function runChecks(analysis: NoteAnalysis, settings: Settings, checks: re
     cache?.set(timepoint, own);
     for (const f of own) findings.push(f);
   }
-  findings.sort((a, b) => comparePositions(a.range.start, b.range.start) || a.code.localeCompare(b.code));
+  // Codes are ASCII (`PN410`): compared by code unit, the same order on every machine and locale.
+  findings.sort((a, b) => comparePositions(a.range.start, b.range.start) || (a.code < b.code ? -1 : a.code > b.code ? 1 : 0));
   return { analysis, findings, settings };
 }
 
