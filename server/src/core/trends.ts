@@ -2,7 +2,10 @@
  * Series over time for a trend view and a status line: per timepoint, the stated and derived
  * values worth plotting, and which of them used a carried-forward input.
  */
+import type { Timepoint } from './analysis/model';
 import type { NoteResult } from './check-note';
+import type { TimepointDerivation } from './derive/model';
+import { derivedValueOf } from './derive/registry';
 import { formatNumber } from './util/format';
 
 export const TREND_FIELDS = ['pao2', 'paco2', 'ph', 'spo2', 'fio2', 'peep'] as const;
@@ -18,27 +21,42 @@ export interface TrendPointData {
   readonly carried: TrendKey[];
 }
 
+/**
+ * The points of a timepoint, kept per timepoint object: a trend view refreshes after every edit,
+ * and an edit keeps the timepoints it does not touch (they are immutable, and a change of
+ * settings makes new ones), so only the changed timepoints are derived again.
+ */
+const pointsByTimepoint = new WeakMap<Timepoint, TrendPointData>();
+
 export function trendPoints(result: NoteResult): TrendPointData[] {
   const { timeline } = result.analysis;
   return timeline.timepoints.map((tp, i) => {
-    const derivation = result.analysis.derivation(i);
-    const values: Partial<Record<TrendKey, number>> = {};
-    const carried: TrendKey[] = [];
-    for (const id of TREND_FIELDS) {
-      const v = tp.values.get(id);
-      // Measurements are plotted where stated; settings (FiO2, PEEP) also where carried.
-      if (!v || !v.stated.usable || v.stated.value === null) continue;
-      values[id] = v.stated.value;
-      if (v.origin.kind === 'carried' || v.origin.kind === 'header') carried.push(id);
-    }
-    for (const id of TREND_DERIVED) {
-      const d = derivation.derived.find((x) => x.id === id);
-      if (!d) continue;
-      values[id] = d.value;
-      if (d.usesCarried) carried.push(id);
-    }
-    return { timepoint: tp.index, label: tp.label, line: tp.line ?? tp.startLine, minutes: tp.time.minutes, values, carried };
+    const known = pointsByTimepoint.get(tp);
+    if (known) return known;
+    const point = trendPoint(tp, result.analysis.derivation(i));
+    pointsByTimepoint.set(tp, point);
+    return point;
   });
+}
+
+function trendPoint(tp: Timepoint, derivation: TimepointDerivation): TrendPointData {
+  const values: Partial<Record<TrendKey, number>> = {};
+  const carried: TrendKey[] = [];
+  for (const id of TREND_FIELDS) {
+    const v = tp.values.get(id);
+    // Measurements are plotted where stated; settings (FiO2, PEEP) also where carried.
+    if (!v || !v.stated.usable || v.stated.value === null) continue;
+    values[id] = v.stated.value;
+    if (v.origin.kind === 'carried' || v.origin.kind === 'header') carried.push(id);
+  }
+  for (const id of TREND_DERIVED) {
+    // Only the plotted values are derived (see derivedValueOf).
+    const d = derivedValueOf(derivation, id);
+    if (!d) continue;
+    values[id] = d.value;
+    if (d.usesCarried) carried.push(id);
+  }
+  return { timepoint: tp.index, label: tp.label, line: tp.line ?? tp.startLine, minutes: tp.time.minutes, values, carried };
 }
 
 /** Key figures of the timepoint that holds a line, for a status bar: `P/F 147 · PaCO2 47 · pH 7.31`. */
@@ -48,7 +66,7 @@ export function timepointSummary(result: NoteResult, line: number): { label: str
   if (!tp) return null;
   const d = result.analysis.derivation(tp.index);
   const parts: string[] = [];
-  const pf = d?.derived.find((x) => x.id === 'pf_ratio');
+  const pf = derivedValueOf(d, 'pf_ratio');
   if (pf) parts.push(`P/F ${formatNumber(pf.value, 0)}`);
   const show = (id: string, name: string, decimals: number, unit = '') => {
     const v = tp.values.get(id);
@@ -58,7 +76,7 @@ export function timepointSummary(result: NoteResult, line: number): { label: str
   show('paco2', 'PaCO2', 0);
   show('pao2', 'PaO2', 0);
   show('spo2', 'SpO2', 0, '%');
-  const dp = d?.derived.find((x) => x.id === 'driving_pressure');
+  const dp = derivedValueOf(d, 'driving_pressure');
   if (dp) parts.push(`ΔP ${formatNumber(dp.value, 0)}`);
   const readings = (d?.interpretations ?? []).filter((i) => i.notable).map((i) => i.text);
   return {

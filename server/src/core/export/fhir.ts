@@ -36,6 +36,7 @@
 import type { NoteResult } from '../check-note';
 import type { InputValue, Timepoint } from '../analysis/model';
 import type { DerivedValue } from '../derive/model';
+import { derivedValueOf } from '../derive/registry';
 import { FIELDS, type FieldDef } from '../fields/registry';
 import { unitById } from '../fields/units';
 import type { SectionId } from '../fields/sections';
@@ -288,7 +289,7 @@ export function toFhirBundle(path: string, result: NoteResult, options: FhirOpti
       const resource = fieldObservation(field, input, place);
       if (resource) fullUrls.set(`${tp.index}:${field.id}`, add(place, field.id, resource));
     }
-    const pf = result.analysis.derivation(tp.index).derived.find((d) => d.id === 'pf_ratio');
+    const pf = derivedValueOf(result.analysis.derivation(tp.index), 'pf_ratio');
     if (pf) {
       const resource = pfObservation(pf, tp, place, fullUrls);
       if (resource) add(place, pf.id, resource);
