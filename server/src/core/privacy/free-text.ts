@@ -34,7 +34,8 @@ export function freeTextOf(node: LineNode): FreeText[] {
       if (node.section === 'note') {
         if (node.prose) out.push({ text: node.prose.text, start: node.prose.span.start });
       } else {
-        out.push({ text: maskReadings(node.text.slice(0, bodyEnd), node), start: 0 });
+        const masked = maskReadings(node.text, bodyEnd, node);
+        if (masked !== '') out.push({ text: masked, start: 0 });
       }
       break;
   }
@@ -42,33 +43,37 @@ export function freeTextOf(node: LineNode): FreeText[] {
   return out;
 }
 
-/** The body of an item line with each reading (known key, number or pair value, unit) blanked out. */
-function maskReadings(body: string, node: Extract<LineNode, { kind: 'section' }>): string {
+/**
+ * The body of an item line (`text` up to `bodyEnd`) with each reading (known key, number or pair
+ * value, unit) blanked out; '' when nothing else is there (the common case, found without
+ * copying the line).
+ */
+function maskReadings(text: string, bodyEnd: number, node: Extract<LineNode, { kind: 'section' }>): string {
   const masked: Span[] = [];
   for (const item of node.items) {
     if (!item.value || item.value.kind === 'word') continue;
     const known = item.implied !== null || fieldFor(node.section, item.keyName) !== undefined;
     if (known) masked.push(item.span);
   }
-  if (masked.length === 0) return body;
+  const isFree = (c: number) => c !== 0x20 && c !== 0x09 && c !== 0x2c;
   // Common case: nothing but the section word, readings, blanks and commas. Nothing to scan.
   let free = false;
   let at0 = node.sectionToken.span.end;
   for (const span of masked) {
-    for (let i = at0; i < span.start && i < body.length; i++) {
-      const c = body.charCodeAt(i);
-      if (c !== 0x20 && c !== 0x09 && c !== 0x2c) { free = true; break; }
+    for (let i = at0; i < span.start && i < bodyEnd; i++) {
+      if (isFree(text.charCodeAt(i))) { free = true; break; }
     }
     if (free) break;
     at0 = Math.max(at0, span.end);
   }
   if (!free) {
-    for (let i = at0; i < body.length; i++) {
-      const c = body.charCodeAt(i);
-      if (c !== 0x20 && c !== 0x09 && c !== 0x2c) { free = true; break; }
+    for (let i = at0; i < bodyEnd; i++) {
+      if (isFree(text.charCodeAt(i))) { free = true; break; }
     }
   }
   if (!free) return '';
+  const body = text.slice(0, bodyEnd);
+  if (masked.length === 0) return body;
   let out = '';
   let at = 0;
   for (const span of masked) {

@@ -304,17 +304,23 @@ function readNumberChunk(chunk: Chunk): ChunkValue {
 }
 
 function readSlashGroup(chunk: Chunk): PairValue | null {
-  if (!chunk.text.includes('/')) return null;
+  const text = chunk.text;
+  let slash = text.indexOf('/');
+  if (slash < 0) return null;
+  // Numbers separated by single slashes, read in place (no split of the chunk).
   const parts: NumberValue[] = [];
-  let pos = 0;
-  for (const part of chunk.text.split('/')) {
-    const num = leadingNumber(part);
-    if (part.length === 0 || num.length !== part.length) return null;
-    const start = chunk.span.start + pos;
-    parts.push({ kind: 'number', text: part, value: num.value, span: { start, end: start + part.length }, decimalComma: num.decimalComma });
-    pos += part.length + 1;
+  let from = 0;
+  for (;;) {
+    const end = slash < 0 ? text.length : slash;
+    const num = leadingNumber(text, from);
+    if (end === from || num.length !== end - from) return null;
+    const start = chunk.start + from;
+    parts.push({ kind: 'number', text: text.slice(from, end), value: num.value, span: { start, end: start + (end - from) }, decimalComma: num.decimalComma });
+    if (slash < 0) break;
+    from = slash + 1;
+    slash = text.indexOf('/', from);
   }
-  return { kind: 'pair', text: chunk.text, parts, span: chunk.span };
+  return { kind: 'pair', text, parts, span: chunk };
 }
 
 const SHORTHAND_KEYS = ['ph', 'pco2', 'po2', 'hco3'] as const;
