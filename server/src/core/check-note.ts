@@ -42,10 +42,12 @@ export function runChecks(analysis: NoteAnalysis, settings: Settings, checks: re
     range: { start: { line: 0, character: 0 }, end: { line: 0, character: 0 } },
     message: `Check ${check.code} (${check.alias}) failed on this note: ${error instanceof Error ? error.message : String(error)}. Other checks still ran.`,
   });
+  const noteShared = new Map<string, unknown>();
+  const sharedInNote = <T>(key: string, compute: () => T): T => sharedValue(noteShared, key, compute);
   for (const check of enabled) {
     const run = check.run;
     if (!run) continue;
-    const ctx: CheckContext = { analysis, settings, report: (r: Report) => findings.push(toFinding(check, r)) };
+    const ctx: CheckContext = { analysis, settings, report: (r: Report) => findings.push(toFinding(check, r)), shared: sharedInNote };
     try {
       run(ctx);
     } catch (error) {
@@ -57,12 +59,15 @@ export function runChecks(analysis: NoteAnalysis, settings: Settings, checks: re
   // timepoint to timepoint (a big note has thousands of timepoints and dozens of checks).
   let current: CheckDef | null = null;
   let own: Finding[] = [];
+  // Values shared by the checks of one timepoint (a fresh store per timepoint, made when first used).
+  let timepointShared: Map<string, unknown> | null = null;
   const ctx: { -readonly [K in keyof TimepointContext]: TimepointContext[K] } = {
     analysis,
     settings,
     timepoint: analysis.timeline.timepoints[0]!,
     derivation: { timepoint: 0, derived: [], missing: [], notApplicable: [], interpretations: [] },
     report: (r: Report) => own.push(toFinding(current!, r)),
+    shared: <T>(key: string, compute: () => T): T => sharedValue((timepointShared ??= new Map<string, unknown>()), key, compute),
   };
   const timepoints = analysis.timeline.timepoints;
   for (let i = 0; i < timepoints.length; i++) {
@@ -74,6 +79,7 @@ export function runChecks(analysis: NoteAnalysis, settings: Settings, checks: re
     }
     ctx.timepoint = timepoint;
     ctx.derivation = analysis.derivation(i);
+    timepointShared = null;
     own = [];
     for (const check of perTimepoint) {
       current = check;
@@ -89,6 +95,13 @@ export function runChecks(analysis: NoteAnalysis, settings: Settings, checks: re
   // Codes are ASCII (`PN410`): compared by code unit, the same order on every machine and locale.
   findings.sort((a, b) => comparePositions(a.range.start, b.range.start) || (a.code < b.code ? -1 : a.code > b.code ? 1 : 0));
   return { analysis, findings, settings };
+}
+
+function sharedValue<T>(store: Map<string, unknown>, key: string, compute: () => T): T {
+  if (store.has(key)) return store.get(key) as T;
+  const value = compute();
+  store.set(key, value);
+  return value;
 }
 
 function toFinding(check: CheckDef, r: Report): Finding {

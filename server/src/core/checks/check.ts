@@ -33,6 +33,11 @@ export interface CheckContext {
   readonly analysis: NoteAnalysis;
   readonly settings: Settings;
   report(finding: Report): void;
+  /**
+   * A value several checks need, computed by the first that asks and shared by the others: for
+   * the whole run in `run`, for the timepoint in `runTimepoint`.
+   */
+  shared<T>(key: string, compute: () => T): T;
 }
 
 /** What a timepoint-scoped check sees: one timepoint and its derived values. */

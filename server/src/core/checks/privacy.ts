@@ -27,22 +27,19 @@ interface LineMatch {
 }
 
 /**
- * The seven checks share one scan of each group of lines: the matches are kept per timepoint
- * (and per tree for the header), so the first check to ask scans and the others read.
+ * The seven checks share one scan of each group of lines (`ctx.shared`): the first check to ask
+ * scans the header or the timepoint, and the others read.
  */
-const scanned = new WeakMap<object, readonly LineMatch[]>();
-
-function matchesOf(owner: object, lines: readonly LineNode[], start: number, end: number): readonly LineMatch[] {
-  const known = scanned.get(owner);
-  if (known) return known;
-  const found: LineMatch[] = [];
-  for (let i = start; i < end && i < lines.length; i++) {
-    const node = lines[i]!;
-    if (node.kind === 'blank' && !node.comment) continue;
-    for (const match of scanLine(node)) found.push({ line: node.line, match });
-  }
-  scanned.set(owner, found);
-  return found;
+function matchesOf(ctx: CheckContext, lines: readonly LineNode[], start: number, end: number): readonly LineMatch[] {
+  return ctx.shared('privacy-matches', () => {
+    const found: LineMatch[] = [];
+    for (let i = start; i < end && i < lines.length; i++) {
+      const node = lines[i]!;
+      if (node.kind === 'blank' && !node.comment) continue;
+      for (const match of scanLine(node)) found.push({ line: node.line, match });
+    }
+    return found;
+  });
 }
 
 /**
@@ -63,11 +60,11 @@ function privacyCheck(code: string, alias: string, kind: PrivacyKind, title: str
       if (!ctx.settings.privacyChecks) return;
       // Timepoints cover every line from the first one's start to the end of the note: the
       // note-scoped part is the header before it (the timepoints are checked one by one below).
-      report(ctx, matchesOf(ctx.analysis.tree, ctx.analysis.tree.lines, 0, headerLineCount(ctx.analysis)));
+      report(ctx, matchesOf(ctx, ctx.analysis.tree.lines, 0, headerLineCount(ctx.analysis)));
     },
     runTimepoint(ctx) {
       if (!ctx.settings.privacyChecks) return;
-      report(ctx, matchesOf(ctx.timepoint, ctx.analysis.tree.lines, ctx.timepoint.startLine, ctx.timepoint.endLine + 1));
+      report(ctx, matchesOf(ctx, ctx.analysis.tree.lines, ctx.timepoint.startLine, ctx.timepoint.endLine + 1));
     },
   });
 }
