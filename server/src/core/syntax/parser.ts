@@ -323,6 +323,27 @@ function readSlashGroup(chunk: Chunk): PairValue | null {
   return { kind: 'pair', text, parts, span: chunk };
 }
 
+/**
+ * A `key value [unit]` item. It is its own span (`span` returns the item, which holds `start`
+ * and `end`): one object per item of a big note instead of two.
+ */
+class KeyedItem implements ItemNode, Span {
+  readonly implied = null;
+
+  constructor(
+    readonly key: Token,
+    readonly keyName: string,
+    readonly value: ValueNode | null,
+    readonly unit: Token | null,
+    readonly start: number,
+    readonly end: number,
+  ) {}
+
+  get span(): Span {
+    return this;
+  }
+}
+
 const SHORTHAND_KEYS = ['ph', 'pco2', 'po2', 'hco3'] as const;
 
 function isKey(section: SectionId, text: string): boolean {
@@ -449,7 +470,7 @@ function parseItems(section: SectionId, chunks: readonly Chunk[], start: number,
       issues.push({ check: 'missing-value', span: key.span, message: `\`${key.text}\` has no value.`, fixes: [] });
     }
     const end = (unit ?? value ?? key).span.end;
-    items.push({ key, keyName, implied: null, value, unit, span: { start: key.span.start, end } });
+    items.push(new KeyedItem(key, keyName, value, unit, key.span.start, end));
   }
 
   // Decimal commas anywhere in the line's numbers.
