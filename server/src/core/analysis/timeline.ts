@@ -84,22 +84,31 @@ export function buildTimeline(tree: NoteTree, settings: Settings): Timeline {
 
 export function buildTimelineIncremental(tree: NoteTree, settings: Settings, previous: TimelineCache | null): { timeline: Timeline; cache: TimelineCache } {
   const usable = previous && previous.settings === settings ? previous.blocks : [];
-  const blocks = splitBlocks(tree.lines);
+  const lines = tree.lines;
+  // Block 0: the lines before the first `@` (possibly none); then one block per `@` line. Blocks
+  // are ranges of the line list: a block that is reused is never copied out of it.
+  const starts: number[] = [0];
+  for (let i = 0; i < lines.length; i++) if (lines[i]!.kind === 'timepoint') starts.push(i);
   const entries: BlockEntry[] = [];
   const timepoints: Timepoint[] = [];
   const header: StatedValue[] = [];
   const readIssues: ReadIssue[] = [];
   let state = START_STATE;
   let reused = 0;
-  blocks.forEach((nodes, b) => {
+  for (let b = 0; b < starts.length; b++) {
+    const start = starts[b]!;
+    const end = b + 1 < starts.length ? starts[b + 1]! : lines.length;
     const index = timepoints.length;
-    const endLine = b + 1 < blocks.length ? (blocks[b + 1]![0]!.line - 1) : tree.lines.length - 1;
+    const endLine = end - 1;
     const old = usable[b];
     let result: BlockResult;
-    if (old && old.index === index && old.endLine === endLine && sameNodes(old.nodes, nodes) && sameState(old.stateIn, state)) {
+    let nodes: readonly LineNode[];
+    if (old && old.index === index && old.endLine === endLine && sameNodes(old.nodes, lines, start, end) && sameState(old.stateIn, state)) {
       result = old.result;
+      nodes = old.nodes;
       reused++;
     } else {
+      nodes = lines.slice(start, end);
       result = processBlock(nodes, index, endLine, state, settings, tree, old?.result.stateOut ?? null);
     }
     entries.push({ nodes, index, endLine, stateIn: state, result });
@@ -107,26 +116,19 @@ export function buildTimelineIncremental(tree: NoteTree, settings: Settings, pre
     for (const s of result.header) header.push(s);
     for (const issue of result.issues) readIssues.push(issue);
     state = result.stateOut;
-  });
+  }
   return { timeline: { timepoints, readIssues, header }, cache: { settings, blocks: entries, reused } };
 }
 
-/** Block 0: the lines before the first `@` (possibly empty); then one block per `@` line. */
-function splitBlocks(lines: readonly LineNode[]): LineNode[][] {
-  const blocks: LineNode[][] = [[]];
-  for (const node of lines) {
-    if (node.kind === 'timepoint') blocks.push([node]);
-    else blocks[blocks.length - 1]!.push(node);
-  }
-  return blocks;
-}
-
-/** Lines parse the same when their number and text are the same (the parser is a pure function of both). */
-function sameNodes(a: readonly LineNode[], b: readonly LineNode[]): boolean {
-  if (a.length !== b.length) return false;
+/**
+ * Whether a block's lines are `lines[start, end)` again: the same nodes, or nodes of the same
+ * line number and text (the parser is a pure function of both).
+ */
+function sameNodes(a: readonly LineNode[], lines: readonly LineNode[], start: number, end: number): boolean {
+  if (a.length !== end - start) return false;
   for (let i = 0; i < a.length; i++) {
     const x = a[i]!;
-    const y = b[i]!;
+    const y = lines[start + i]!;
     if (x !== y && (x.line !== y.line || x.text !== y.text)) return false;
   }
   return true;
