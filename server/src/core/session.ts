@@ -12,7 +12,7 @@ import { runChecks, type NoteResult, type TimepointFindingsCache } from './check
 import { buildTimelineIncremental, type TimelineCache } from './analysis/timeline';
 import { deriverFor } from './analysis/analyse';
 import { withDefaults, type Settings } from './settings';
-import { parseLine, splitLines } from './syntax/parser';
+import { firstEol, parseLine, splitLines } from './syntax/parser';
 import type { LineNode, NoteTree } from './syntax/tree';
 
 export interface SessionStats {
@@ -154,13 +154,4 @@ function commonSuffix(a: string, b: string, limit: number): number {
   while (k + BLOCK <= limit && a.substring(a.length - k - BLOCK, a.length - k) === b.substring(b.length - k - BLOCK, b.length - k)) k += BLOCK;
   while (k < limit && a.charCodeAt(a.length - 1 - k) === b.charCodeAt(b.length - 1 - k)) k++;
   return k;
-}
-
-/** The first line terminator of the text (`\n` when it has none), as `splitLines` reports it. */
-function firstEol(text: string): NoteTree['eol'] {
-  const lf = text.indexOf('\n');
-  const cr = text.indexOf('\r');
-  if (cr < 0) return '\n';
-  if (lf < 0 || cr < lf) return text.charCodeAt(cr + 1) === 0x0a ? '\r\n' : '\r';
-  return '\n';
 }

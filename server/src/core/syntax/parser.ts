@@ -28,53 +28,46 @@ export interface LineSlice {
   readonly offset: number;
 }
 
-/** Splits text into lines as LSP does (`\n`, `\r\n` and `\r` all end a line). */
-export function splitLines(text: string): { lines: LineSlice[]; eol: NoteTree['eol'] } {
-  const lines: LineSlice[] = [];
-  let eol: NoteTree['eol'] | null = null;
-  let start = 0;
-  const n = text.length;
-  for (let i = 0; i < n; i++) {
-    const c = text.charCodeAt(i);
-    if (c === 0x0a || c === 0x0d) {
-      lines.push({ text: text.slice(start, i), offset: start });
-      if (c === 0x0d && i + 1 < n && text.charCodeAt(i + 1) === 0x0a) {
-        eol ??= '\r\n';
-        i++;
-      } else {
-        eol ??= c === 0x0a ? '\n' : '\r';
-      }
-      start = i + 1;
-    }
-  }
-  lines.push({ text: text.slice(start), offset: start });
-  return { lines, eol: eol ?? '\n' };
-}
-
-export function parseNote(text: string): NoteTree {
-  // As splitLines, without keeping the pieces: each line is parsed as it is cut. The next line
-  // end is found with indexOf (a native search) for each terminator.
-  const nodes: LineNode[] = [];
-  let eol: NoteTree['eol'] | null = null;
+/**
+ * Cuts text into lines as LSP does (`\n`, `\r\n` and `\r` all end a line), handing each line
+ * and its start offset to `visit`. Line ends are found with indexOf (a native search) for each
+ * terminator. Returns the first terminator (see `firstEol`).
+ */
+function cutLines(text: string, visit: (line: string, offset: number) => void): NoteTree['eol'] {
   let start = 0;
   let lf = text.indexOf('\n');
   let cr = text.indexOf('\r');
   while (lf >= 0 || cr >= 0) {
     const end = cr < 0 || (lf >= 0 && lf < cr) ? lf : cr;
-    nodes.push(parseLine(text.slice(start, end), nodes.length));
-    let next = end + 1;
-    if (end === cr && lf === end + 1) {
-      eol ??= '\r\n';
-      next = end + 2;
-    } else {
-      eol ??= end === lf ? '\n' : '\r';
-    }
-    start = next;
+    visit(text.slice(start, end), start);
+    start = end === cr && lf === end + 1 ? end + 2 : end + 1;
     if (lf >= 0 && lf < start) lf = text.indexOf('\n', start);
     if (cr >= 0 && cr < start) cr = text.indexOf('\r', start);
   }
-  nodes.push(parseLine(text.slice(start), nodes.length));
-  return { lines: nodes, eol: eol ?? '\n' };
+  visit(text.slice(start), start);
+  return firstEol(text);
+}
+
+/** The line terminator used first in the text (`\n` when it has none). */
+export function firstEol(text: string): NoteTree['eol'] {
+  const lf = text.indexOf('\n');
+  const cr = text.indexOf('\r');
+  if (cr < 0 || (lf >= 0 && lf < cr)) return '\n';
+  return text.charCodeAt(cr + 1) === 0x0a ? '\r\n' : '\r';
+}
+
+/** Splits text into lines as LSP does (`\n`, `\r\n` and `\r` all end a line). */
+export function splitLines(text: string): { lines: LineSlice[]; eol: NoteTree['eol'] } {
+  const lines: LineSlice[] = [];
+  const eol = cutLines(text, (line, offset) => { lines.push({ text: line, offset }); });
+  return { lines, eol };
+}
+
+/** Parses a note; each line is parsed as it is cut (no list of pieces is kept). */
+export function parseNote(text: string): NoteTree {
+  const nodes: LineNode[] = [];
+  const eol = cutLines(text, (line) => { nodes.push(parseLine(line, nodes.length)); });
+  return { lines: nodes, eol };
 }
 
 /** The words of the format, kept once (see chunkLine's `intern`). */
