@@ -383,12 +383,16 @@ function isHereOnly(s: StatedValue): boolean {
   return MEASURE_SECTIONS.has(s.section) || READING_FIELDS.has(s.fieldId);
 }
 
+/** Whether two states hold the very same settings maps (a block that held nothing keeps them). */
+function sameHeldMaps(a: CarryState, b: CarryState): boolean {
+  return a.patient === b.patient && a.place === b.place && a.oxygen === b.oxygen && a.vent === b.vent;
+}
+
 /** The carried layer of a state: the one before it when the held settings did not change. */
 function carriedLayer(state: CarryState, stateIn: CarryState): ReadonlyMap<string, InputValue> {
   if (state.layer) return state.layer;
-  const unchanged = state.patient === stateIn.patient && state.place === stateIn.place && state.oxygen === stateIn.oxygen && state.vent === stateIn.vent;
   let layer: ReadonlyMap<string, InputValue>;
-  if (unchanged && stateIn.layer) {
+  if (stateIn.layer && sameHeldMaps(state, stateIn)) {
     layer = stateIn.layer;
   } else {
     const built = new Map<string, InputValue>();
@@ -405,8 +409,7 @@ function freeze(b: { index: number; line: number | null; label: string; startLin
   const own = new Map<string, InputValue>();
   // Settings stated at this timepoint (still held at its end) are in force here with their line;
   // when no held map changed, none was.
-  const changed = state.patient !== stateIn.patient || state.place !== stateIn.place || state.oxygen !== stateIn.oxygen || state.vent !== stateIn.vent;
-  if (changed) {
+  if (!sameHeldMaps(state, stateIn)) {
     for (const map of [state.patient, state.place, state.oxygen, state.vent]) {
       for (const held of map.values()) {
         if (held.timepoint === b.index) own.set(held.stated.fieldId, { stated: held.stated, origin: originOf(held, b.index) });

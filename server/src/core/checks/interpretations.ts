@@ -22,26 +22,29 @@ function interpretationCheck(code: string, alias: string, title: string, topics:
   });
 }
 
+/** A reading is information, never a fault: the same advice for every reading check. */
+const READING_FIX = 'Nothing to fix: a reading to support, not replace, clinical judgement.';
+
 export const oxygenationReading = interpretationCheck('PN410', 'oxygenation-reading', 'Oxygenation reading', ['oxygenation', 'oxygenation-band'], 'hypoxaemia PaO2 < 60 mmHg (setting): common practice, no source; oxygenation bands: ARDS Definition Task Force, JAMA 2012;307:2526–2533 (from memory)', {
   fires: 'A gas shows hypoxaemia, or oxygenation that needs supplemental oxygen (P/F ≤ 300 on oxygen); with PEEP or CPAP ≥ 5 cmH2O, the P/F band of the Berlin definition is named — as an oxygenation band, never as a diagnosis.',
   example: '@ 08:00\noxygen room air\nabg 7.44/34/52/23',
-  fix: 'Nothing to fix: a reading to support, not replace, clinical judgement.',
+  fix: READING_FIX,
 });
 
 export const ventilationReading = interpretationCheck('PN411', 'ventilation-reading', 'Ventilation reading', ['ventilation'], 'hypercapnia PaCO2 > 50 mmHg and hypocapnia < 35 mmHg (settings): common practice, no source', {
   fires: 'PaCO2 is above the hypercapnia threshold or below the hypocapnia threshold.',
   example: '@ 08:00\nabg 7.25/68/70/29',
-  fix: 'Nothing to fix: a reading to support, not replace, clinical judgement.',
+  fix: READING_FIX,
 });
 
 export const respiratoryFailureReading = interpretationCheck('PN412', 'respiratory-failure-reading', 'Respiratory failure reading', ['respiratory-failure', 'hypoxaemia-mechanism'], 'type 1: hypoxaemia with normal or low PaCO2; type 2: hypoxaemia with hypercapnia (common practice, no source); mechanism from PiO2, A–a gradient and PaCO2 (alveolar gas equation)', {
   fires: 'The gas is consistent with type 1 or type 2 respiratory failure; the likely mechanism of the hypoxaemia (low inspired oxygen, hypoventilation, a raised A–a gradient, or a mix) is named.',
   example: '@ 08:00\noxygen room air\nabg 7.28/62/51/28',
-  fix: 'Nothing to fix: a reading to support, not replace, clinical judgement.',
+  fix: READING_FIX,
 });
 
 export const acidBaseReading = interpretationCheck('PN413', 'acid-base-reading', 'Acid–base reading', ['acid-base'], "primary disorder and compensation: Albert, Dell & Winters 1967; Narins & Emmett 1980; Adrogué & Madias 2010; Berend et al. 2014 (from memory)", {
   fires: 'The gas shows an acid–base disorder: the primary disorder, whether the compensation is in the expected range, a suspected second disorder, and acute versus chronic for a respiratory disorder.',
   example: '@ 08:00\nabg 7.21/24/95/9.5',
-  fix: 'Nothing to fix: a reading to support, not replace, clinical judgement.',
+  fix: READING_FIX,
 });

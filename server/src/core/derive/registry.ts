@@ -96,10 +96,7 @@ function relevantSlots(tp: Timepoint): number {
  * and can be computed; the rest of the timepoint is not derived.
  */
 export function derivedAt(tp: Timepoint, settings: Settings, id: string): DerivedValue | null {
-  const slot = TABLE.slots.get(id);
-  if (slot === undefined || (relevantSlots(tp) & (1 << slot)) === 0) return null;
-  const r = new DeriveContext(tp, settings, TABLE).evaluateSlot(slot);
-  return r && 'value' in r ? r : null;
+  return new TimepointValues(tp, settings).value(id);
 }
 
 /**
