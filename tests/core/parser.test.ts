@@ -51,7 +51,7 @@ describe('lines and line ends', () => {
   it('counts columns in UTF-16 code units after non-ASCII prose', () => {
     const text = 'vitals hr 80 # 😀 naïve';
     const node = section(text);
-    expect(node.comment?.span).toEqual({ start: 13, end: text.length });
+    expect([node.comment?.span.start, node.comment?.span.end]).toEqual([13, text.length]);
     const note = section('note   café ☕ — breathing easier 🙂');
     expect(note.prose?.text).toBe('café ☕ — breathing easier 🙂');
   });

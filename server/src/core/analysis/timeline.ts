@@ -41,8 +41,6 @@ interface CarryState {
   readonly vent: HeldMap;
   readonly gasUnit: Held | null;
   readonly lastTime: TimepointTime;
-  /** The carried layer of the values in force under this state, once built (see ValuesInForce). */
-  layer?: ReadonlyMap<string, InputValue> | undefined;
 }
 
 export interface Timeline {
@@ -76,7 +74,7 @@ export interface TimelineCache {
 }
 
 const EMPTY: HeldMap = new Map();
-const START_STATE: CarryState = Object.freeze({ patient: EMPTY, place: EMPTY, oxygen: EMPTY, vent: EMPTY, gasUnit: null, lastTime: { day: null, minutes: null }, layer: new Map<string, InputValue>() });
+const START_STATE: CarryState = Object.freeze({ patient: EMPTY, place: EMPTY, oxygen: EMPTY, vent: EMPTY, gasUnit: null, lastTime: { day: null, minutes: null } });
 
 export function buildTimeline(tree: NoteTree, settings: Settings): Timeline {
   return buildTimelineIncremental(tree, settings, null).timeline;
@@ -157,7 +155,7 @@ function processBlock(nodes: readonly LineNode[], index: number, endLine: number
   const issues: ReadIssue[] = [];
   const header: StatedValue[] = [];
   const first = nodes[0];
-  const mutable: MutableState = { ...stateIn, layer: undefined };
+  const mutable: MutableState = { ...stateIn };
   const seenInHeader = new Map<SectionId, Map<string, StatedValue>>();
   const seenAtTimepoint = new Map<SectionId, Map<string, StatedValue>>();
   let tp: { index: number; line: number | null; label: string; startLine: number; time: TimepointTime; stated: StatedValue[] } | null = null;
@@ -182,7 +180,7 @@ function processBlock(nodes: readonly LineNode[], index: number, endLine: number
   }
   const stateOut = reuseEqual(mutable, previousOut);
   if (!tp) return { timepoint: null, header, issues, stateOut };
-  return { timepoint: freeze(tp, endLine, stateOut, stateIn, settings), header, issues, stateOut };
+  return { timepoint: freeze(tp, endLine, stateOut, settings), header, issues, stateOut };
 }
 
 function firstContentLine(tree: NoteTree): number {
@@ -265,7 +263,7 @@ type MutableState = { -readonly [K in keyof CarryState]: CarryState[K] };
 
 function apply(section: SectionId, stated: readonly StatedValue[], tp: number, label: string, state: MutableState): void {
   // A line of readings only (`vent plateau 24`) holds nothing: the held map stays the same
-  // object, so the carried layer and the reuse of later timepoints see no change.
+  // object, so the reuse of later timepoints sees no change.
   const hold = (base: HeldMap): HeldMap => {
     let next: Map<string, Held> | null = null;
     for (const s of stated) {
@@ -329,28 +327,40 @@ function sameHeld(a: Held, b: Held): boolean {
 }
 
 /**
- * The values in force at one timepoint, in two layers: those stated at this timepoint (its
- * measurements and the settings stated here), and the settings carried in. The carried layer
- * is built once per change of the carried state and shared by every timepoint until the next
- * change, so a big note does not hold a full map per timepoint. Reads look in the timepoint's
- * layer, then the carried one; iterating builds the full map once (in the order stated below).
+ * The values in force at one timepoint, read from what the timeline keeps anyway: the values
+ * stated at this timepoint (its measurements and device readings, the last of a field winning)
+ * and the settings held at its end (stated here, carried in, or from the header). Nothing is
+ * stored per value: a read builds the value and its origin when asked, so a big note keeps no
+ * map and no origin per timepoint. Iterating builds the full map once (in the order below).
  */
 class ValuesInForce implements ReadonlyMap<string, InputValue> {
   private full: Map<string, InputValue> | null = null;
 
   constructor(
-    private readonly own: ReadonlyMap<string, InputValue>,
-    private readonly carried: ReadonlyMap<string, InputValue>,
+    private readonly index: number,
     private readonly state: CarryState,
     private readonly stated: readonly StatedValue[],
   ) {}
 
   get(id: string): InputValue | undefined {
-    return this.own.get(id) ?? this.carried.get(id);
+    const stated = this.stated;
+    for (let i = stated.length - 1; i >= 0; i--) {
+      const s = stated[i]!;
+      if (s.fieldId === id && isHereOnly(s)) return { stated: s, origin: { kind: 'here', line: s.line, span: s.item.span } };
+    }
+    const held = this.heldFor(id);
+    return held ? { stated: held.stated, origin: originOf(held, this.index) } : undefined;
   }
 
   has(id: string): boolean {
-    return this.own.has(id) || this.carried.has(id);
+    for (const s of this.stated) if (s.fieldId === id && isHereOnly(s)) return true;
+    return this.heldFor(id) !== undefined;
+  }
+
+  /** A field is held in one map only (an oxygen line empties the ventilator's and back). */
+  private heldFor(id: string): Held | undefined {
+    const { vent, oxygen, place, patient } = this.state;
+    return vent.get(id) ?? oxygen.get(id) ?? place.get(id) ?? patient.get(id);
   }
 
   /** Settings (patient, place, oxygen, ventilator) in the order they are held, then what was measured here. */
@@ -360,7 +370,7 @@ class ValuesInForce implements ReadonlyMap<string, InputValue> {
     for (const map of [this.state.patient, this.state.place, this.state.oxygen, this.state.vent]) {
       for (const held of map.values()) full.set(held.stated.fieldId, this.get(held.stated.fieldId)!);
     }
-    for (const s of this.stated) if (isHereOnly(s)) full.set(s.fieldId, this.own.get(s.fieldId)!);
+    for (const s of this.stated) if (isHereOnly(s)) full.set(s.fieldId, this.get(s.fieldId)!);
     this.full = full;
     return full;
   }
@@ -383,44 +393,8 @@ function isHereOnly(s: StatedValue): boolean {
   return MEASURE_SECTIONS.has(s.section) || READING_FIELDS.has(s.fieldId);
 }
 
-/** Whether two states hold the very same settings maps (a block that held nothing keeps them). */
-function sameHeldMaps(a: CarryState, b: CarryState): boolean {
-  return a.patient === b.patient && a.place === b.place && a.oxygen === b.oxygen && a.vent === b.vent;
-}
-
-/** The carried layer of a state: the one before it when the held settings did not change. */
-function carriedLayer(state: CarryState, stateIn: CarryState): ReadonlyMap<string, InputValue> {
-  if (state.layer) return state.layer;
-  let layer: ReadonlyMap<string, InputValue>;
-  if (stateIn.layer && sameHeldMaps(state, stateIn)) {
-    layer = stateIn.layer;
-  } else {
-    const built = new Map<string, InputValue>();
-    for (const map of [state.patient, state.place, state.oxygen, state.vent]) {
-      for (const held of map.values()) built.set(held.stated.fieldId, { stated: held.stated, origin: originOf(held, Number.POSITIVE_INFINITY) });
-    }
-    layer = built;
-  }
-  state.layer = layer;
-  return layer;
-}
-
-function freeze(b: { index: number; line: number | null; label: string; startLine: number; time: TimepointTime; stated: StatedValue[] }, endLine: number, state: CarryState, stateIn: CarryState, settings: Settings): Timepoint {
-  const own = new Map<string, InputValue>();
-  // Settings stated at this timepoint (still held at its end) are in force here with their line;
-  // when no held map changed, none was.
-  if (!sameHeldMaps(state, stateIn)) {
-    for (const map of [state.patient, state.place, state.oxygen, state.vent]) {
-      for (const held of map.values()) {
-        if (held.timepoint === b.index) own.set(held.stated.fieldId, { stated: held.stated, origin: originOf(held, b.index) });
-      }
-    }
-  }
-  // Measurements and device readings stated here (the last of a field wins).
-  for (const s of b.stated) {
-    if (isHereOnly(s)) own.set(s.fieldId, { stated: s, origin: { kind: 'here', line: s.line, span: s.item.span } });
-  }
-  const values = new ValuesInForce(own, carriedLayer(state, stateIn), state, b.stated);
+function freeze(b: { index: number; line: number | null; label: string; startLine: number; time: TimepointTime; stated: StatedValue[] }, endLine: number, state: CarryState, settings: Settings): Timepoint {
+  const values = new ValuesInForce(b.index, state, b.stated);
   return { index: b.index, line: b.line, label: b.label, startLine: b.startLine, endLine, time: b.time, stated: b.stated, values, barometricMmhg: barometricInForce(state.place, settings) };
 }
 

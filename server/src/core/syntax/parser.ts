@@ -105,7 +105,7 @@ export function parseLine(text: string, line: number): LineNode {
 function parseLineUnsafe(text: string, line: number): LineNode {
   const hash = text.indexOf('#');
   const bodyEnd = hash >= 0 ? hash : text.length;
-  const comment: Token | null = hash >= 0 ? { text: text.slice(hash), span: { start: hash, end: text.length } } : null;
+  const comment: Token | null = hash >= 0 ? token(text.slice(hash), hash, text.length) : null;
   const body = hash >= 0 ? text.slice(0, bodyEnd) : text;
   const chunks = chunkLine(body, 0, intern);
   const first = chunks[0];
@@ -118,13 +118,14 @@ function parseLineUnsafe(text: string, line: number): LineNode {
   const sectionToken: Token = first;
   if (!section) {
     const restStart = chunks[1]?.span.start;
-    const rest: Token | null = restStart === undefined ? null : { text: body.slice(restStart).trimEnd(), span: { start: restStart, end: restStart + body.slice(restStart).trimEnd().length } };
+    const restText = restStart === undefined ? '' : body.slice(restStart).trimEnd();
+    const rest: Token | null = restStart === undefined ? null : token(restText, restStart, restStart + restText.length);
     return { kind: 'unknown', line, text, comment, first: sectionToken, rest, issues: [unknownSectionIssue(first)] };
   }
   if (section.id === 'note') {
     const proseStart = chunks[1]?.span.start;
     const proseEnd = chunks[chunks.length - 1]?.span.end ?? first.span.end;
-    const prose: Token | null = proseStart === undefined ? null : { text: body.slice(proseStart, proseEnd), span: { start: proseStart, end: proseEnd } };
+    const prose: Token | null = proseStart === undefined ? null : token(body.slice(proseStart, proseEnd), proseStart, proseEnd);
     return { kind: 'section', line, text, comment, section: section.id, sectionToken, items: NO_ITEMS, prose, issues: NO_ISSUES };
   }
   const issues: SyntaxIssue[] = [];
@@ -160,7 +161,7 @@ function unknownSectionIssue(first: Chunk): SyntaxIssue {
 function parseTimepoint(body: string, chunks: Chunk[], line: number, text: string, comment: Token | null): LineNode {
   const issues: SyntaxIssue[] = [];
   const first = chunks[0]!;
-  const marker: Token = { text: '@', span: { start: first.span.start, end: first.span.start + 1 } };
+  const marker: Token = token('@', first.start, first.start + 1);
   // `@07:40` is read like `@ 07:40`.
   const rest: Chunk[] = [];
   if (first.text.length > 1) rest.push(new Chunk(first.text.slice(1), first.start + 1, first.end, false));
@@ -216,7 +217,7 @@ function parseTimepoint(body: string, chunks: Chunk[], line: number, text: strin
   const labelChunks = rest.slice(used);
   const l0 = labelChunks[0];
   const lN = labelChunks[labelChunks.length - 1];
-  const label: Token | null = l0 && lN ? { text: body.slice(l0.span.start, lN.span.end), span: { start: l0.span.start, end: lN.span.end } } : null;
+  const label: Token | null = l0 && lN ? token(body.slice(l0.start, lN.end), l0.start, lN.end) : null;
   return { kind: 'timepoint', line, text, comment, marker, time, label, issues: issues.length === 0 ? NO_ISSUES : issues };
 }
 
@@ -271,6 +272,28 @@ export function readOffset(text: string): number | null {
 
 // ── items ───────────────────────────────────────────────────────────────
 
+/** A token that is its own span (one object, not two): a chunk no comma came before. */
+function token(text: string, start: number, end: number): Chunk {
+  return new Chunk(text, start, end, false);
+}
+
+/** A number as written; like a chunk, it is its own span. */
+class NumberNode implements NumberValue, Span {
+  readonly kind = 'number';
+
+  constructor(
+    readonly text: string,
+    readonly value: number,
+    readonly start: number,
+    readonly end: number,
+    readonly decimalComma: boolean,
+  ) {}
+
+  get span(): Span {
+    return this;
+  }
+}
+
 interface ChunkValue {
   readonly value: ValueNode | null;
   /** A unit written glued to the number (`89%`, `38.4C`). */
@@ -283,17 +306,11 @@ function readNumberChunk(chunk: Chunk): ChunkValue {
   const num = leadingNumber(chunk.text);
   if (num.length === 0) return NOT_A_NUMBER;
   const whole = num.length === chunk.text.length;
-  const value: NumberValue = {
-    kind: 'number',
-    text: whole ? chunk.text : chunk.text.slice(0, num.length),
-    value: num.value,
-    span: whole ? chunk.span : { start: chunk.span.start, end: chunk.span.start + num.length },
-    decimalComma: num.decimalComma,
-  };
+  const value = new NumberNode(whole ? chunk.text : chunk.text.slice(0, num.length), num.value, chunk.start, chunk.start + num.length, num.decimalComma);
   if (whole) return { value, gluedUnit: null };
   const suffix = chunk.text.slice(num.length);
   if (suffix.includes('/') && isDigit(suffix.charCodeAt(1))) return NOT_A_NUMBER;
-  return { value, gluedUnit: { text: suffix, span: { start: value.span.end, end: chunk.span.end } } };
+  return { value, gluedUnit: token(suffix, value.end, chunk.end) };
 }
 
 function readSlashGroup(chunk: Chunk): PairValue | null {
@@ -308,7 +325,7 @@ function readSlashGroup(chunk: Chunk): PairValue | null {
     const num = leadingNumber(text, from);
     if (end === from || num.length !== end - from) return null;
     const start = chunk.start + from;
-    parts.push({ kind: 'number', text: text.slice(from, end), value: num.value, span: { start, end: start + (end - from) }, decimalComma: num.decimalComma });
+    parts.push(new NumberNode(text.slice(from, end), num.value, start, start + (end - from), num.decimalComma));
     if (slash < 0) break;
     from = slash + 1;
     slash = text.indexOf('/', from);
