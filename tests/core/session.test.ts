@@ -4,7 +4,8 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { allDerivations } from '../../server/src/core/analysis/analyse';
 import { checkNote, type NoteResult } from '../../server/src/core/check-note';
-import { NoteSession } from '../../server/src/core/session';
+import { nextCut, NoteSession } from '../../server/src/core/session';
+import { generateNote } from '../bench/generate.mjs';
 import { readFileSync } from 'node:fs';
 import { setFlagsFromString } from 'node:v8';
 import { runInNewContext } from 'node:vm';
@@ -108,6 +109,94 @@ describe('NoteSession', () => {
     const b = session.update(base);
     expect(b).not.toBe(a);
     expect(snapshot(b)).toEqual(snapshot(checkNote(base, { alveolarEquation: 'full' })));
+  });
+});
+
+describe('NoteSession.steps (a note read in steps)', () => {
+  const big = generateNote(300); // about 1,500 lines
+
+  function run(session: NoteSession, text: string, linesPerStep: number): { result: NoteResult; yields: number } {
+    const steps = session.steps(text, linesPerStep);
+    let yields = 0;
+    for (;;) {
+      const next = steps.next();
+      if (next.done) return { result: next.value, yields };
+      yields++;
+    }
+  }
+
+  it('reads a new note in steps and ends with what a fresh analysis gives', () => {
+    const session = new NoteSession();
+    const { result, yields } = run(session, big, 200);
+    const lines = big.split('\n').length;
+    expect(yields).toBeGreaterThanOrEqual(Math.floor(lines / 400));
+    expect(yields).toBeLessThanOrEqual(Math.ceil(lines / 200));
+    expect(snapshot(result)).toEqual(snapshot(checkNote(big)));
+    // Each step stops before a timepoint line, so a timepoint is read once: the last update read
+    // only the lines of its step.
+    expect(session.stats.parsedLines).toBeLessThanOrEqual(2 * 200 + 1);
+  });
+
+  it('takes one step for a note it has read (an edit)', () => {
+    const session = new NoteSession();
+    session.update(big);
+    const edited = big.replace('hour 150', 'hour 150 (edited)');
+    const { result, yields } = run(session, edited, 200);
+    expect(yields).toBe(0);
+    expect(snapshot(result)).toEqual(snapshot(checkNote(edited)));
+  });
+
+  it('goes on from where unfinished steps stopped when the note changed meanwhile', () => {
+    const session = new NoteSession();
+    const first = session.steps(big, 200);
+    first.next();
+    first.next(); // two steps read, then the note changes near its start and near its end
+    const lines = big.split('\n');
+    lines[6] = 'vitals    hr 131, spo2 88 %';
+    lines[lines.length - 3] = 'abg       7.21/66/58/26';
+    const changed = lines.join('\n');
+    const { result, yields } = run(session, changed, 200);
+    expect(yields).toBeGreaterThan(0);
+    expect(snapshot(result)).toEqual(snapshot(checkNote(changed)));
+  });
+
+  it('stops early when an update in between brought the session to the text', () => {
+    const session = new NoteSession();
+    const steps = session.steps(big, 200);
+    steps.next();
+    const whole = session.update(big); // a request that needed the result
+    const end = steps.next();
+    expect(end.done).toBe(true);
+    expect(end.value).toBe(whole);
+  });
+
+  it('starts afresh in steps after a change of settings', () => {
+    const session = new NoteSession();
+    session.update(big);
+    session.setSettings({ alveolarEquation: 'full' });
+    const { result, yields } = run(session, big, 200);
+    expect(yields).toBeGreaterThan(0);
+    expect(snapshot(result)).toEqual(snapshot(checkNote(big, { alveolarEquation: 'full' })));
+  });
+});
+
+describe('nextCut', () => {
+  it('cuts at the start of the first timepoint line after the lines asked for', () => {
+    const text = 'a\nb\n@ 1\nc\n@ 2\nd';
+    expect(nextCut(text, 0, 1)).toBe(text.indexOf('@ 1'));
+    expect(nextCut(text, 0, 3)).toBe(text.indexOf('@ 2'));
+    expect(nextCut(text, text.indexOf('@ 2'), 5)).toBe(text.length);
+  });
+
+  it('cuts at any line after twice the lines asked for when no timepoint line comes', () => {
+    expect(nextCut('a\nb\nc\nd\ne', 0, 2)).toBe('a\nb\nc\nd\n'.length);
+  });
+
+  it('counts \\r\\n and a lone \\r as one line end each, and never cuts between \\r and \\n', () => {
+    const text = 'a\r\nb\r@ 1\r\n@ 2';
+    expect(nextCut(text, 0, 1)).toBe(text.indexOf('@ 1'));
+    expect(nextCut(text, 0, 3)).toBe(text.indexOf('@ 2'));
+    expect(nextCut('a\r\nb\r\nc', 0, 1)).toBe(6);
   });
 });
 

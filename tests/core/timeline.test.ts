@@ -130,7 +130,7 @@ describe('reading units', () => {
   });
 });
 
-describe('values in force (layered per timepoint, shared carried layer)', () => {
+describe('values in force (read from the held settings and the values stated here)', () => {
   it('reads, tests and iterates the same values, each with the origin its carry rule gives (300 notes)', () => {
     fc.assert(
       fc.property(nearlyValidNote, (text) => {
@@ -138,7 +138,7 @@ describe('values in force (layered per timepoint, shared carried layer)', () => 
           const listed = new Map(tp.values);
           expect(tp.values.size).toBe(listed.size);
           for (const [id, v] of listed) {
-            expect(tp.values.get(id)).toBe(v);
+            expect(tp.values.get(id)).toEqual(v);
             expect(tp.values.has(id)).toBe(true);
             // Stated at this timepoint: origin `here` on its own line; otherwise from an earlier timepoint or the header.
             const statedHere = tp.stated.some((s) => s === v.stated);

@@ -27,6 +27,8 @@ export interface LspClient {
   change(uri: string, text: string, version: number): void;
   /** Resolves with the first diagnostics for `uri` matching `accept` (already received or future). */
   diagnostics(uri: string, accept?: (p: PublishDiagnosticsParams) => boolean, timeoutMs?: number): Promise<PublishDiagnosticsParams>;
+  /** Resolves once the client has answered a `workspace/configuration` request about `uri`. */
+  configured(uri: string): Promise<void>;
   close(): Promise<number | null>;
 }
 
@@ -48,7 +50,16 @@ export async function startClient(settings: Record<string, unknown> = {}): Promi
   });
   connection.onNotification('window/logMessage', () => undefined);
   connection.onNotification('pneumark/analysed', () => undefined);
-  connection.onRequest('workspace/configuration', (params: { items: { section?: string }[] }) => params.items.map(() => client.settings));
+  const configWaiters: { uri: string; resolve: () => void }[] = [];
+  connection.onRequest('workspace/configuration', (params: { items: { scopeUri?: string; section?: string }[] }) => {
+    for (const w of [...configWaiters]) {
+      if (params.items.some((i) => i.scopeUri === w.uri)) {
+        configWaiters.splice(configWaiters.indexOf(w), 1);
+        setImmediate(w.resolve); // after the answer is on its way
+      }
+    }
+    return params.items.map(() => client.settings);
+  });
   connection.onRequest('client/registerCapability', () => null);
   connection.listen();
   const initialize = await connection.sendRequest<InitializeResult>('initialize', {
@@ -77,6 +88,9 @@ export async function startClient(settings: Record<string, unknown> = {}): Promi
         const timer = setTimeout(() => reject(new Error(`no diagnostics for ${uri} within ${timeoutMs} ms; stderr: ${client.stderr}`)), timeoutMs);
         waiters.push({ uri, accept, resolve: (p) => { clearTimeout(timer); resolve(p); } });
       });
+    },
+    configured(uri: string) {
+      return new Promise<void>((resolve) => configWaiters.push({ uri, resolve }));
     },
     async close() {
       const exited = new Promise<number | null>((resolve) => child.once('exit', (code) => resolve(code)));

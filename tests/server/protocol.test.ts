@@ -7,6 +7,7 @@ import { pathToFileURL } from 'node:url';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { CodeAction, CompletionItem, Diagnostic, DocumentSymbol, FoldingRange, Hover, InlayHint, TextEdit } from 'vscode-languageserver-protocol';
 import { applyEdits } from '../../server/src/core/service/text-edits';
+import { generateNote } from '../bench/generate.mjs';
 import { startClient, type LspClient } from './lsp-client';
 
 const icuPath = join(process.cwd(), 'samples/icu-ventilated-lung-injury.pneu');
@@ -222,6 +223,34 @@ describe('robustness', () => {
     expect(await client.connection.sendRequest('textDocument/hover', { textDocument: { uri }, position: { line: 0, character: 9999 } })).toBeNull();
     const hints = await client.connection.sendRequest('textDocument/inlayHint', { textDocument: { uri }, range: { start: { line: 50, character: 0 }, end: { line: 90, character: 0 } } });
     expect(hints).toEqual([]);
+  });
+
+  it('reads a big note in steps: requests about other notes are answered while it is analysed', async () => {
+    const small = client.open(join(process.cwd(), 'beside-big.pneu'), '@ 08:00\nvitals hr 80\n');
+    await client.diagnostics(small);
+    const big = join(process.cwd(), 'big-first-open.pneu');
+    const bigUri = pathToFileURL(big).toString();
+    const configured = client.configured(bigUri);
+    client.open(big, generateNote(3000)); // about 15,000 lines
+    await configured; // the server starts analysing it now
+    let bigDone = false;
+    let answeredMeanwhile = 0;
+    const diagnosed = client.diagnostics(bigUri, undefined, 60000).then((p) => { bigDone = true; return p; });
+    // Hovers on the small note, one after another, until the big note's diagnostics arrive. Read
+    // in one go, the big note would hold every one of them up until its diagnostics were sent.
+    while (!bigDone) {
+      const hover = await Promise.race([
+        client.connection.sendRequest<Hover | null>('textDocument/hover', { textDocument: { uri: small }, position: { line: 1, character: 8 } }),
+        diagnosed.then(() => 'done' as const),
+      ]);
+      if (hover === 'done' || bigDone) break;
+      expect(hover?.contents).toBeTruthy();
+      answeredMeanwhile++;
+    }
+    expect(answeredMeanwhile).toBeGreaterThanOrEqual(3);
+    const p = await diagnosed;
+    expect(p.version).toBe(1);
+    expect(p.diagnostics.length).toBeGreaterThan(1000);
   });
 
   it('degrades gracefully on a 20 MB note, and keeps serving others', async () => {

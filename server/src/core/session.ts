@@ -31,6 +31,8 @@ export class NoteSession {
   private starts: number[] = [];
   private timelineCache: TimelineCache | null = null;
   private findings: TimepointFindingsCache = new WeakMap();
+  /** The last update was a step of `steps` short of the whole note. */
+  private partial = false;
   private statsValue: SessionStats = { parsedLines: 0, reusedTimepoints: 0, timepoints: 0 };
 
   constructor(settings: Partial<Settings> = {}) {
@@ -53,6 +55,7 @@ export class NoteSession {
   }
 
   update(text: string): NoteResult {
+    this.partial = false;
     if (this.last && text === this.lastText) return this.last;
     const { tree, parsed } = this.parse(text);
     const { timeline, cache } = buildTimelineIncremental(tree, this.settings, this.timelineCache);
@@ -63,6 +66,31 @@ export class NoteSession {
     this.lastText = text;
     this.statsValue = { parsedLines: parsed, reusedTimepoints: cache.reused, timepoints: timeline.timepoints.length };
     return this.last;
+  }
+
+  /**
+   * `update(text)` in steps, for a note the session has not read yet (the first analysis of an
+   * open note, or the first after a change of settings): each step reads about `linesPerStep`
+   * more lines (up to the start of a timepoint, so no timepoint is read twice) through `update`,
+   * which reuses everything read before. A caller yields between steps so a big note never holds
+   * up anything else; the generator's return value is `update(text)`. It stops early when
+   * something else brought the session to `text` in between (a request that needed the result).
+   * A note the session has read is updated in one step: an edit costs little.
+   */
+  *steps(text: string, linesPerStep = 1500): Generator<void, NoteResult, void> {
+    if (this.lastText === null || this.partial) {
+      // Steps left unfinished (the note changed meanwhile) go on from what they had read.
+      let at = this.lastText === null ? 0 : commonPrefix(this.lastText, text);
+      for (;;) {
+        at = nextCut(text, at, linesPerStep);
+        if (at >= text.length) break;
+        this.update(text.slice(0, at));
+        this.partial = true;
+        yield;
+        if (this.lastText === text) return this.last!;
+      }
+    }
+    return this.update(text);
   }
 
   /**
@@ -135,6 +163,25 @@ export class NoteSession {
  */
 function detached(stretch: string): string {
   return ` ${stretch}`.slice(1);
+}
+
+/**
+ * Where a step of `steps` ends: the start of the first timepoint line (`@` first on its line)
+ * after `lines` more lines from `from`, or of any line after twice as many; the text's length
+ * when it ends before. Line terminators are `\n`, `\r\n` and `\r`, as for the parser.
+ */
+export function nextCut(text: string, from: number, lines: number): number {
+  let count = 0;
+  for (let i = from; i < text.length; i++) {
+    const c = text.charCodeAt(i);
+    if (c !== 0x0a && c !== 0x0d) continue;
+    if (c === 0x0d && text.charCodeAt(i + 1) === 0x0a) i++;
+    count++;
+    const start = i + 1;
+    if (start >= text.length) return text.length;
+    if (count >= 2 * lines || (count >= lines && text.charCodeAt(start) === 0x40 /* @ */)) return start;
+  }
+  return text.length;
 }
 
 /** Characters compared at once when looking for the changed stretch (string equality is a block compare). */

@@ -163,6 +163,12 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     return state.session.update(doc.getText());
   }
 
+  /**
+   * Analyses a note and publishes its diagnostics. A note the session has not read yet is read
+   * in steps (`NoteSession.steps`) with a turn of the event loop between them, so opening a big
+   * note never holds up requests for others; a newer version cancels the steps left (through
+   * `state.timer`, like a pending analysis) and its own analysis goes on from what was read.
+   */
   function analyseAndPublish(uri: string): void {
     const doc = documents.get(uri);
     if (!doc) return;
@@ -170,20 +176,34 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     const version = doc.version;
     const started = performance.now();
     const text = doc.getText();
-    let diagnostics: Diagnostic[];
     if (text.length > state.settings.maxNoteBytes) {
-      diagnostics = [{
+      publish(uri, state, version, started, [{
         range: { start: { line: 0, character: 0 }, end: { line: 0, character: 0 } },
         severity: 3,
         source: 'pneumark',
         code: 'too-large',
         message: `Pneumark does not analyse notes over ${Math.round(state.settings.maxNoteBytes / 1024)} KB (this one is ${(text.length / 1048576).toFixed(1)} MB): split it into smaller notes, or raise pneumark.maxNoteSizeKb.`,
-      }];
-    } else {
-      const result = state.session.update(text);
-      diagnostics = result.findings.map((f) => diagnosticOf(f, uri));
+      }]);
+      return;
     }
-    // A newer version may have arrived while analysing: never publish over it.
+    const steps = state.session.steps(text);
+    const step = guard('analysis', undefined, () => {
+      state.timer = null;
+      // A newer version may have arrived meanwhile: its own analysis takes over.
+      if (documents.get(uri)?.version !== version) return;
+      const next = steps.next();
+      if (next.done) {
+        publish(uri, state, version, started, next.value.findings.map((f) => diagnosticOf(f, uri)));
+        return;
+      }
+      const handle = setImmediate(step);
+      state.timer = { cancel: () => clearImmediate(handle) };
+    });
+    step(undefined);
+  }
+
+  function publish(uri: string, state: NoteState, version: number, started: number, diagnostics: Diagnostic[]): void {
+    // Never publish over a newer version.
     if (documents.get(uri)?.version !== version) return;
     state.published = version;
     state.diagnostics = diagnostics;
