@@ -6,6 +6,8 @@ import { checkByCodeOrAlias } from '../../server/src/core/checks/registry';
 import { NoteSession } from '../../server/src/core/session';
 import { applyEdits } from '../../server/src/core/service/text-edits';
 import { hitsInProse, isPrivacyCode, privacyHits } from './helpers';
+import { freeTextOf } from '../../server/src/core/privacy/free-text';
+import { parseLine } from '../../server/src/core/syntax/parser';
 
 describe('where the privacy checks look', () => {
   it('reads comments, note prose, timepoint labels and lines that are not sections', () => {
@@ -32,6 +34,18 @@ describe('where the privacy checks look', () => {
     expect(privacyHits('vitals    hr 1234567')).toEqual([]);
     expect(privacyHits('place     altitude 1650 m, barometric 628 mmHg')).toEqual([]);
     expect(privacyHits('vent      mode VC, vt 430 mL, rate 24, peep 10, fio2 0.6, plateau 29, peak 34, flow 60 L/min, map 17')).toEqual([]);
+  });
+
+  it('leaves nothing to scan on a line of readings: listed words and the slashes of a shorthand gas are readings too', () => {
+    const free = (line: string) => freeTextOf(parseLine(line, 0)).map((f) => f.text.trim());
+    expect(free('vent      mode VC, vt 430 mL, peep 10')).toEqual([]);
+    expect(free('abg       7.42/41/98/26.5, lactate 1.1')).toEqual([]);
+    expect(free('vitals    bp 120/80, hr 72')).toEqual([]);
+    // A word the field does not list is free text, and so is anything beside the readings.
+    expect(free('vent      mode Smith, peep 10')).toEqual(['vent      mode Smith,']);
+    const beside = free('abg       7.42/41/98/26.5 12/03/1961');
+    expect(beside).toEqual([expect.stringMatching(/^abg[ /]+12\/03\/1961$/)]);
+    expect(privacyHits('abg       7.42/41/98/26.5, DOB 12/03/1961')).toEqual([{ code: 'PN502', text: '12/03/1961' }]);
   });
 
   it('leaves the time of a timepoint to the syntax check (a calendar date there is PN104 alone)', () => {

@@ -231,7 +231,7 @@ describe('robustness', () => {
     const big = join(process.cwd(), 'big-first-open.pneu');
     const bigUri = pathToFileURL(big).toString();
     const configured = client.configured(bigUri);
-    client.open(big, generateNote(3000)); // about 15,000 lines
+    client.open(big, generateNote(5000)); // about 25,000 lines
     await configured; // the server starts analysing it now
     let bigDone = false;
     let answeredMeanwhile = 0;

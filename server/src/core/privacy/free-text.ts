@@ -1,9 +1,9 @@
 /**
  * Which parts of a note line are free text, where identifiers can hide: comments, note prose,
  * timepoint labels, the whole of a line that is not a section, and on item lines everything but
- * the readings (a known key with its number and unit is masked out, so `hr 118` or
- * `bp 120/80` never reach the detectors, while a free word such as `mode Smith`, an unknown key
- * or stray text does).
+ * the readings (a known key with its number and unit, or with a word the field lists, is masked
+ * out, so `hr 118`, `bp 120/80` or `mode VC` never reach the detectors, while a free word such
+ * as `mode Smith`, an unknown key or stray text does).
  */
 import { fieldFor } from '../fields/registry';
 import type { LineNode, Span } from '../syntax/tree';
@@ -51,11 +51,15 @@ export function freeTextOf(node: LineNode): FreeText[] {
 function maskReadings(text: string, bodyEnd: number, node: Extract<LineNode, { kind: 'section' }>): string {
   const masked: Span[] = [];
   for (const item of node.items) {
-    if (!item.value || item.value.kind === 'word') continue;
-    const known = item.implied !== null || fieldFor(node.section, item.keyName) !== undefined;
-    if (known) masked.push(item.span);
+    if (!item.value) continue;
+    const field = item.implied !== null && item.value.kind !== 'word' ? true : fieldFor(node.section, item.keyName);
+    if (!field) continue;
+    // A word is a reading when it is one the field lists (`mode VC`); any other word is free text.
+    if (item.value.kind === 'word' && (field === true || field.words?.[item.value.text.toLowerCase()] === undefined)) continue;
+    masked.push(item.span);
   }
-  const isFree = (c: number) => c !== 0x20 && c !== 0x09 && c !== 0x2c;
+  // Blanks, commas and the slashes of a shorthand gas between its numbers are no text.
+  const isFree = (c: number) => c !== 0x20 && c !== 0x09 && c !== 0x2c && c !== 0x2f;
   // Common case: nothing but the section word, readings, blanks and commas. Nothing to scan.
   let free = false;
   let at0 = node.sectionToken.span.end;
