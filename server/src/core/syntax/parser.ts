@@ -129,7 +129,7 @@ function parseLineUnsafe(text: string, line: number): LineNode {
     return { kind: 'section', line, text, comment, section: section.id, sectionToken, items: NO_ITEMS, prose, issues: NO_ISSUES };
   }
   const issues: SyntaxIssue[] = [];
-  const items = parseItems(section.id, chunks, 1, issues);
+  const items = parseItems(section.id, chunks, 1, issues, text);
   return { kind: 'section', line, text, comment, section: section.id, sectionToken, items, prose: null, issues: issues.length === 0 ? NO_ISSUES : issues };
 }
 
@@ -277,17 +277,24 @@ function token(text: string, start: number, end: number): Chunk {
   return new Chunk(text, start, end, false);
 }
 
-/** A number as written; like a chunk, it is its own span. */
+/**
+ * A number as written. Like a chunk, it is its own span; it keeps the line it is on rather
+ * than a string of its own, and cuts its text from it when asked (few numbers ever are).
+ */
 class NumberNode implements NumberValue, Span {
   readonly kind = 'number';
 
   constructor(
-    readonly text: string,
+    private readonly source: string,
     readonly value: number,
     readonly start: number,
     readonly end: number,
     readonly decimalComma: boolean,
   ) {}
+
+  get text(): string {
+    return this.source.slice(this.start, this.end);
+  }
 
   get span(): Span {
     return this;
@@ -302,18 +309,19 @@ interface ChunkValue {
 
 const NOT_A_NUMBER: ChunkValue = Object.freeze({ value: null, gluedUnit: null });
 
-function readNumberChunk(chunk: Chunk): ChunkValue {
+/** `source` is the text of the line the chunk is on. */
+function readNumberChunk(chunk: Chunk, source: string): ChunkValue {
   const num = leadingNumber(chunk.text);
   if (num.length === 0) return NOT_A_NUMBER;
   const whole = num.length === chunk.text.length;
-  const value = new NumberNode(whole ? chunk.text : chunk.text.slice(0, num.length), num.value, chunk.start, chunk.start + num.length, num.decimalComma);
+  const value = new NumberNode(source, num.value, chunk.start, chunk.start + num.length, num.decimalComma);
   if (whole) return { value, gluedUnit: null };
   const suffix = chunk.text.slice(num.length);
   if (suffix.includes('/') && isDigit(suffix.charCodeAt(1))) return NOT_A_NUMBER;
   return { value, gluedUnit: token(suffix, value.end, chunk.end) };
 }
 
-function readSlashGroup(chunk: Chunk): PairValue | null {
+function readSlashGroup(chunk: Chunk, source: string): PairValue | null {
   const text = chunk.text;
   let slash = text.indexOf('/');
   if (slash < 0) return null;
@@ -325,7 +333,7 @@ function readSlashGroup(chunk: Chunk): PairValue | null {
     const num = leadingNumber(text, from);
     if (end === from || num.length !== end - from) return null;
     const start = chunk.start + from;
-    parts.push(new NumberNode(text.slice(from, end), num.value, start, start + (end - from), num.decimalComma));
+    parts.push(new NumberNode(source, num.value, start, start + (end - from), num.decimalComma));
     if (slash < 0) break;
     from = slash + 1;
     slash = text.indexOf('/', from);
@@ -335,19 +343,24 @@ function readSlashGroup(chunk: Chunk): PairValue | null {
 
 /**
  * A `key value [unit]` item. It is its own span (`span` returns the item, which holds `start`
- * and `end`): one object per item of a big note instead of two.
+ * and `end`), and it holds its key's text rather than a token: the key starts the item, so
+ * `key` builds the token when asked. One object per item of a big note instead of three.
  */
 class KeyedItem implements ItemNode, Span {
   readonly implied = null;
 
   constructor(
-    readonly key: Token,
+    readonly keyText: string,
     readonly keyName: string,
     readonly value: ValueNode | null,
     readonly unit: Token | null,
     readonly start: number,
     readonly end: number,
   ) {}
+
+  get key(): Token {
+    return new Chunk(this.keyText, this.start, this.start + this.keyText.length, false);
+  }
 
   get span(): Span {
     return this;
@@ -373,7 +386,8 @@ function deviceWordAt(chunks: readonly Chunk[], i: number): { text: string; span
   return null;
 }
 
-function parseItems(section: SectionId, chunks: readonly Chunk[], start: number, issues: SyntaxIssue[]): ItemNode[] {
+/** `source` is the text of the line (spans and numbers' texts refer to it). */
+function parseItems(section: SectionId, chunks: readonly Chunk[], start: number, issues: SyntaxIssue[], source: string): ItemNode[] {
   const items: ItemNode[] = [];
   let i = start;
   const n = chunks.length;
@@ -395,7 +409,7 @@ function parseItems(section: SectionId, chunks: readonly Chunk[], start: number,
 
   // Shorthand gas: abg 7.28/56/71/26 [kPa]
   if ((section === 'abg' || section === 'vbg') && chunks[start]) {
-    const group = readSlashGroup(chunks[start]);
+    const group = readSlashGroup(chunks[start], source);
     if (group) {
       i = start + 1;
       if (group.parts.length < 2 || group.parts.length > 4) {
@@ -420,7 +434,7 @@ function parseItems(section: SectionId, chunks: readonly Chunk[], start: number,
       items.push({ key: null, keyName: 'device', implied: 'device', value, unit: null, span: dev.span });
       const next = chunks[i];
       if (next && !next.afterComma) {
-        const num = readNumberChunk(next);
+        const num = readNumberChunk(next, source);
         if (num.value && num.value.kind === 'number') {
           i++;
           const unit = takeUnit(num.gluedUnit);
@@ -433,15 +447,14 @@ function parseItems(section: SectionId, chunks: readonly Chunk[], start: number,
 
   while (i < n) {
     const chunk = chunks[i]!;
-    const asNumber = readNumberChunk(chunk);
-    const asGroup = readSlashGroup(chunk);
+    const asNumber = readNumberChunk(chunk, source);
+    const asGroup = readSlashGroup(chunk, source);
     if (asNumber.value || asGroup) {
       issues.push({ check: 'stray-text', span: chunk.span, message: `\`${chunk.text}\` has no key; write it as \`key value\`, e.g. \`hr 118\`.`, fixes: [] });
       i++;
       continue;
     }
-    // A key (the chunk itself serves as the token).
-    const key: Token = chunk;
+    const key = chunk;
     const keyName = chunk.text.toLowerCase();
     const field = fieldFor(section, chunk.text);
     i++;
@@ -463,8 +476,8 @@ function parseItems(section: SectionId, chunks: readonly Chunk[], start: number,
           }
         }
       } else {
-        const group = readSlashGroup(next);
-        const num = group ? null : readNumberChunk(next);
+        const group = readSlashGroup(next, source);
+        const num = group ? null : readNumberChunk(next, source);
         if (group) {
           value = group;
           i++;
@@ -480,7 +493,7 @@ function parseItems(section: SectionId, chunks: readonly Chunk[], start: number,
       issues.push({ check: 'missing-value', span: key.span, message: `\`${key.text}\` has no value.`, fixes: [] });
     }
     const end = (unit ?? value ?? key).span.end;
-    items.push(new KeyedItem(key, keyName, value, unit, key.span.start, end));
+    items.push(new KeyedItem(key.text, keyName, value, unit, key.start, end));
   }
 
   // Decimal commas anywhere in the line's numbers.
