@@ -2,6 +2,9 @@
 // `npm run bench`: parse, timeline (values read and carried), checks (which derive what they
 // need). Prints medians and minimums of 21 runs; asserts nothing. `npm run bench:stages`.
 // The gap between a stage's median and its minimum is mostly garbage collection.
+// Then reference floors on the same text, for scale: what this machine takes to split the note
+// into words and keep them (as strings, or as one small object per word — a syntax tree keeps
+// at least that), and to JSON.parse the same words written as JSON.
 import { build } from 'esbuild';
 import { rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -34,3 +37,23 @@ const sorted = (a) => [...a].sort((x, y) => x - y);
 console.log(`Pneumark analysis stages: ${text.split('\n').length} lines, Node ${process.version}`);
 console.log(`${'stage'.padEnd(10)} ${'median'.padStart(10)} ${'min'.padStart(10)}`);
 for (const [stage, xs] of Object.entries(times)) console.log(`${stage.padEnd(10)} ${`${sorted(xs)[10].toFixed(1)} ms`.padStart(10)} ${`${sorted(xs)[0].toFixed(1)} ms`.padStart(10)}`);
+
+// Reference floors: no analysis at all, only the cost of keeping the note's words.
+const words = (line) => line.split(/[ ,]+/);
+const floors = {
+  'words as strings': () => text.split('\n').map(words),
+  'one object per word': () => text.split('\n').map((l) => words(l).map((w, i) => ({ text: w, start: i, end: i + w.length }))),
+  'JSON.parse of the words': ((json) => () => JSON.parse(json))(JSON.stringify(text.split('\n').map(words))),
+};
+console.log(`reference floors (the same text, nothing analysed; ${text.split(/[\n ,]+/).length} words)`);
+for (const [name, f] of Object.entries(floors)) {
+  const xs = [];
+  let kept = [];
+  for (let i = 0; i < 21; i++) {
+    const t = performance.now();
+    kept.push(f());
+    xs.push(performance.now() - t);
+    if (kept.length > 2) kept = kept.slice(-2); // results stay alive a while, as an analysis does
+  }
+  console.log(`${name.padEnd(24)} ${`${sorted(xs)[10].toFixed(1)} ms`.padStart(10)} ${`${sorted(xs)[0].toFixed(1)} ms`.padStart(10)}`);
+}
