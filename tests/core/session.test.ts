@@ -146,6 +146,25 @@ describe('NoteSession.steps (a note read in steps)', () => {
     expect(snapshot(result)).toEqual(snapshot(checkNote(edited)));
   });
 
+  it('reads a change of many lines in steps too: a note pasted into an empty one, a change to every line', () => {
+    const session = new NoteSession();
+    session.update('');
+    const pasted = run(session, big, 200);
+    expect(pasted.yields).toBeGreaterThan(0);
+    expect(snapshot(pasted.result)).toEqual(snapshot(checkNote(big)));
+    const everyLine = big.replaceAll('vitals    hr', 'vitals hr');
+    const changed = run(session, everyLine, 200);
+    expect(changed.yields).toBeGreaterThan(0);
+    expect(snapshot(changed.result)).toEqual(snapshot(checkNote(everyLine)));
+    // A change whose stretch (first changed line to last) is shorter than a step is one step.
+    const lines = everyLine.split('\n');
+    lines[10] = 'vitals hr 77';
+    lines[lines.length - 10] = 'vitals hr 78';
+    const two = run(session, lines.join('\n'), 5000);
+    expect(two.yields).toBe(0);
+    expect(snapshot(two.result)).toEqual(snapshot(checkNote(lines.join('\n'))));
+  });
+
   it('goes on from where unfinished steps stopped when the note changed meanwhile', () => {
     const session = new NoteSession();
     const first = session.steps(big, 200);
@@ -158,6 +177,34 @@ describe('NoteSession.steps (a note read in steps)', () => {
     const { result, yields } = run(session, changed, 200);
     expect(yields).toBeGreaterThan(0);
     expect(snapshot(result)).toEqual(snapshot(checkNote(changed)));
+  });
+
+  it('ends with what a fresh analysis gives, however edits cut into unfinished steps (200 sequences)', () => {
+    const edit = fc.record({
+      line: fc.nat({ max: baseLines.length + 2 }),
+      kind: fc.constantFrom('replace', 'insert', 'delete'),
+      text: fc.constantFrom('vitals hr 90', 'abg 7.30/50/70/24', 'vent peep 14', '@ 23:00 later', 'units gas kPa', '', 'x'),
+      linesPerStep: fc.integer({ min: 1, max: 6 }),
+      // How many steps run before the next edit arrives (the rest are dropped, as the server does).
+      stepsBeforeNext: fc.integer({ min: 0, max: 4 }),
+    });
+    fc.assert(
+      fc.property(fc.array(edit, { minLength: 1, maxLength: 6 }), (edits) => {
+        const session = new NoteSession();
+        const lines = [...baseLines];
+        for (const e of edits) {
+          const at = Math.min(e.line, lines.length);
+          if (e.kind === 'replace' && at < lines.length) lines[at] = e.text;
+          else if (e.kind === 'insert') lines.splice(at, 0, e.text);
+          else if (e.kind === 'delete' && lines.length > 1 && at < lines.length) lines.splice(at, 1);
+          const steps = session.steps(lines.join('\n'), e.linesPerStep);
+          for (let k = 0; k < e.stepsBeforeNext; k++) if (steps.next().done) break;
+        }
+        const text = lines.join('\n');
+        expect(snapshot(run(session, text, 3).result)).toEqual(snapshot(checkNote(text)));
+      }),
+      { numRuns: 200 },
+    );
   });
 
   it('stops early when an update in between brought the session to the text', () => {

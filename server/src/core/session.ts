@@ -69,18 +69,18 @@ export class NoteSession {
   }
 
   /**
-   * `update(text)` in steps, for a note the session has not read yet (the first analysis of an
-   * open note, or the first after a change of settings): each step reads about `linesPerStep`
-   * more lines (up to the start of a timepoint, so no timepoint is read twice) through `update`,
-   * which reuses everything read before. A caller yields between steps so a big note never holds
-   * up anything else; the generator's return value is `update(text)`. It stops early when
-   * something else brought the session to `text` in between (a request that needed the result).
-   * A note the session has read is updated in one step: an edit costs little.
+   * `update(text)` in steps, when much is to be read: a note the session has not read yet (the
+   * first analysis of an open note, or the first after a change of settings), or a change of
+   * more than `linesPerStep` lines (a pasted note, a whole note converted to other units). Each
+   * step reads about `linesPerStep` more lines of the new text (up to the start of a timepoint,
+   * so no timepoint is read twice) through `update`, which reuses what was read before. A caller
+   * yields between steps so a big note never holds up anything else; the generator's return
+   * value is `update(text)`. It stops early when something else brought the session to `text`
+   * in between (a request that needed the result). A small edit is one step.
    */
   *steps(text: string, linesPerStep = 1500): Generator<void, NoteResult, void> {
-    if (this.lastText === null || this.partial) {
-      // Steps left unfinished (the note changed meanwhile) go on from what they had read.
-      let at = this.lastText === null ? 0 : commonPrefix(this.lastText, text);
+    let at = this.stepsFrom(text, linesPerStep);
+    if (at !== null) {
       for (;;) {
         at = nextCut(text, at, linesPerStep);
         if (at >= text.length) break;
@@ -91,6 +91,18 @@ export class NoteSession {
       }
     }
     return this.update(text);
+  }
+
+  /** Where reading in steps starts (the start of the change), or null for one step. */
+  private stepsFrom(text: string, linesPerStep: number): number | null {
+    const old = this.lastText;
+    if (old === null) return 0;
+    if (old === text) return null;
+    const prefix = commonPrefix(old, text);
+    // Steps left unfinished (the note changed meanwhile) go on from what they had read.
+    if (this.partial) return prefix;
+    const suffix = commonSuffix(old, text, Math.min(old.length, text.length) - prefix);
+    return linesBetween(text, prefix, text.length - suffix, linesPerStep) > linesPerStep ? prefix : null;
   }
 
   /**
@@ -163,6 +175,16 @@ export class NoteSession {
  */
 function detached(stretch: string): string {
   return ` ${stretch}`.slice(1);
+}
+
+/** Line ends in `text[from, to)`, counted up to just over `limit`. */
+function linesBetween(text: string, from: number, to: number, limit: number): number {
+  let count = 0;
+  for (let i = from; i < to && count <= limit; i++) {
+    const c = text.charCodeAt(i);
+    if (c === 0x0a || (c === 0x0d && text.charCodeAt(i + 1) !== 0x0a)) count++;
+  }
+  return count;
 }
 
 /**
