@@ -67,6 +67,10 @@ export const ANALYSED_NOTIFICATION = 'pneumark/analysed';
 export interface AnalysedParams {
   readonly uri: string;
   readonly version: number;
-  /** Milliseconds the analysis took. */
+  /** Milliseconds the analysis took, from its start to its diagnostics. */
   readonly millis: number;
+  /** Steps it was read in (see NoteSession.steps); 1 for an ordinary edit. */
+  readonly steps: number;
+  /** Milliseconds of the longest step: the longest the server was busy with it at a stretch. */
+  readonly longestStepMillis: number;
 }

@@ -13,6 +13,7 @@ import {
   type PublishDiagnosticsParams,
   type InitializeResult,
 } from 'vscode-languageserver-protocol/node';
+import { ANALYSED_NOTIFICATION, type AnalysedParams } from '../../server/src/protocol';
 
 export interface LspClient {
   readonly connection: ProtocolConnection;
@@ -22,11 +23,15 @@ export interface LspClient {
   settings: Record<string, unknown>;
   /** Every publishDiagnostics received, in order. */
   readonly published: PublishDiagnosticsParams[];
+  /** Every `pneumark/analysed` notification received, in order. */
+  readonly analysed: AnalysedParams[];
   stderr: string;
   open(path: string, text: string, version?: number): string;
   change(uri: string, text: string, version: number): void;
   /** Resolves with the first diagnostics for `uri` matching `accept` (already received or future). */
   diagnostics(uri: string, accept?: (p: PublishDiagnosticsParams) => boolean, timeoutMs?: number): Promise<PublishDiagnosticsParams>;
+  /** Resolves with the first `pneumark/analysed` for `uri` (already received or future). */
+  analysedOf(uri: string): Promise<AnalysedParams>;
   /** Resolves once the client has answered a `workspace/configuration` request about `uri`. */
   configured(uri: string): Promise<void>;
   close(): Promise<number | null>;
@@ -49,7 +54,15 @@ export async function startClient(settings: Record<string, unknown> = {}): Promi
     }
   });
   connection.onNotification('window/logMessage', () => undefined);
-  connection.onNotification('pneumark/analysed', () => undefined);
+  const analysed: AnalysedParams[] = [];
+  const analysedWaiters: { uri: string; resolve: (p: AnalysedParams) => void }[] = [];
+  connection.onNotification(ANALYSED_NOTIFICATION, (p: AnalysedParams) => {
+    analysed.push(p);
+    for (const w of analysedWaiters.filter((x) => x.uri === p.uri)) {
+      analysedWaiters.splice(analysedWaiters.indexOf(w), 1);
+      w.resolve(p);
+    }
+  });
   const configWaiters: { uri: string; resolve: () => void }[] = [];
   connection.onRequest('workspace/configuration', (params: { items: { scopeUri?: string; section?: string }[] }) => {
     for (const w of [...configWaiters]) {
@@ -73,6 +86,7 @@ export async function startClient(settings: Record<string, unknown> = {}): Promi
     process: child,
     initialize,
     published,
+    analysed,
     open(path: string, text: string, version = 1) {
       const uri = path.startsWith('untitled:') ? path : pathToFileURL(path).toString();
       void connection.sendNotification('textDocument/didOpen', { textDocument: { uri, languageId: 'pneumark', version, text } });
@@ -88,6 +102,10 @@ export async function startClient(settings: Record<string, unknown> = {}): Promi
         const timer = setTimeout(() => reject(new Error(`no diagnostics for ${uri} within ${timeoutMs} ms; stderr: ${client.stderr}`)), timeoutMs);
         waiters.push({ uri, accept, resolve: (p) => { clearTimeout(timer); resolve(p); } });
       });
+    },
+    analysedOf(uri: string) {
+      const known = analysed.find((p) => p.uri === uri);
+      return known ? Promise.resolve(known) : new Promise<AnalysedParams>((resolve) => analysedWaiters.push({ uri, resolve }));
     },
     configured(uri: string) {
       return new Promise<void>((resolve) => configWaiters.push({ uri, resolve }));

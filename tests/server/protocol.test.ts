@@ -251,6 +251,10 @@ describe('robustness', () => {
     const p = await diagnosed;
     expect(p.version).toBe(1);
     expect(p.diagnostics.length).toBeGreaterThan(1000);
+    // The server says how it went: in steps, none of them the whole analysis.
+    const report = await client.analysedOf(bigUri);
+    expect(report.steps).toBeGreaterThan(5);
+    expect(report.longestStepMillis).toBeLessThan(report.millis);
   });
 
   it('degrades gracefully on a 20 MB note, and keeps serving others', async () => {

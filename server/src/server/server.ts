@@ -30,6 +30,7 @@ import { timepointSummary, trendPoints } from '../core/trends';
 import {
   ANALYSED_NOTIFICATION,
   CONVERT_UNITS_REQUEST,
+  type AnalysedParams,
   SUMMARY_REQUEST,
   TRENDS_REQUEST,
   type ConvertUnitsParams,
@@ -187,13 +188,17 @@ export function startServer(connection: Connection, collector: IdleCollector = n
       return;
     }
     const steps = state.session.steps(text);
+    const timing = { steps: 0, longestStepMillis: 0 };
     const step = guard('analysis', undefined, () => {
       state.timer = null;
       // A newer version may have arrived meanwhile: its own analysis takes over.
       if (documents.get(uri)?.version !== version) return;
+      const stepStarted = performance.now();
       const next = steps.next();
+      timing.steps++;
+      timing.longestStepMillis = Math.max(timing.longestStepMillis, performance.now() - stepStarted);
       if (next.done) {
-        publish(uri, state, version, started, next.value.findings.map((f) => diagnosticOf(f, uri)));
+        publish(uri, state, version, started, next.value.findings.map((f) => diagnosticOf(f, uri)), timing);
         return;
       }
       const handle = setImmediate(step);
@@ -202,13 +207,14 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     step(undefined);
   }
 
-  function publish(uri: string, state: NoteState, version: number, started: number, diagnostics: Diagnostic[]): void {
+  function publish(uri: string, state: NoteState, version: number, started: number, diagnostics: Diagnostic[], timing = { steps: 1, longestStepMillis: performance.now() - started }): void {
     // Never publish over a newer version.
     if (documents.get(uri)?.version !== version) return;
     state.published = version;
     state.diagnostics = diagnostics;
     void connection.sendDiagnostics({ uri, version, diagnostics });
-    void connection.sendNotification(ANALYSED_NOTIFICATION, { uri, version, millis: performance.now() - started });
+    const analysed: AnalysedParams = { uri, version, millis: performance.now() - started, ...timing };
+    void connection.sendNotification(ANALYSED_NOTIFICATION, analysed);
     collector.analysed();
   }
 
