@@ -207,6 +207,19 @@ describe('NoteSession.steps (a note read in steps)', () => {
     );
   });
 
+  it('sizes the steps that follow by what next() is given', () => {
+    const session = new NoteSession();
+    const steps = session.steps(big, 100);
+    steps.next();
+    expect(session.stats.parsedLines).toBeLessThanOrEqual(2 * 100 + 1);
+    steps.next(600);
+    expect(session.stats.parsedLines).toBeGreaterThanOrEqual(600);
+    expect(session.stats.parsedLines).toBeLessThanOrEqual(2 * 600 + 1);
+    let next = steps.next(100_000);
+    while (!next.done) next = steps.next();
+    expect(snapshot(next.value)).toEqual(snapshot(checkNote(big)));
+  });
+
   it('stops early when an update in between brought the session to the text', () => {
     const session = new NoteSession();
     const steps = session.steps(big, 200);

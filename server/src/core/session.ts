@@ -75,18 +75,22 @@ export class NoteSession {
    * step reads about `linesPerStep` more lines of the new text (up to the start of a timepoint,
    * so no timepoint is read twice) through `update`, which reuses what was read before. A caller
    * yields between steps so a big note never holds up anything else; the generator's return
-   * value is `update(text)`. It stops early when something else brought the session to `text`
-   * in between (a request that needed the result). A small edit is one step.
+   * value is `update(text)`, and `next(lines)` sets the size of the steps that follow. It stops
+   * early when something else brought the session to `text` in between (a request that needed
+   * the result). A small edit is one step.
    */
-  *steps(text: string, linesPerStep = 1500): Generator<void, NoteResult, void> {
+  *steps(text: string, linesPerStep = 1500): Generator<void, NoteResult, number | undefined> {
     let at = this.stepsFrom(text, linesPerStep);
     if (at !== null) {
+      let lines = linesPerStep;
       for (;;) {
-        at = nextCut(text, at, linesPerStep);
+        at = nextCut(text, at, lines);
         if (at >= text.length) break;
         this.update(text.slice(0, at));
         this.partial = true;
-        yield;
+        // The caller may size the next step (`next(lines)`), e.g. to fit a time budget.
+        const asked = yield;
+        if (asked !== undefined && asked >= 1) lines = Math.floor(asked);
         if (this.lastText === text) return this.last!;
       }
     }

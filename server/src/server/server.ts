@@ -62,6 +62,16 @@ function docsUri(): string {
   return pathToFileURL(found).toString();
 }
 
+/** Lines read in the first step of a big analysis, and the time each later step aims at. */
+const FIRST_STEP_LINES = 500;
+const STEP_BUDGET_MS = 25;
+
+/** The size of the next step: scaled to the budget by the last step's time, within limits. */
+export function nextStepLines(lines: number, tookMs: number): number {
+  const scaled = tookMs > 0 ? (lines * STEP_BUDGET_MS) / tookMs : lines * 2;
+  return Math.round(Math.min(lines * 2, Math.max(100, Math.min(8000, scaled))));
+}
+
 export function startServer(connection: Connection, collector: IdleCollector = new IdleCollector()): void {
   const documents = new TextDocuments(TextDocument);
   const notes = new Map<string, NoteState>();
@@ -187,16 +197,21 @@ export function startServer(connection: Connection, collector: IdleCollector = n
       }]);
       return;
     }
-    const steps = state.session.steps(text);
+    // The first step is small (the code may not be compiled yet); then steps are sized to last
+    // about STEP_BUDGET_MS each, from how long the last one took.
+    const steps = state.session.steps(text, FIRST_STEP_LINES);
     const timing = { steps: 0, longestStepMillis: 0 };
+    let lines = FIRST_STEP_LINES;
     const step = guard('analysis', undefined, () => {
       state.timer = null;
       // A newer version may have arrived meanwhile: its own analysis takes over.
       if (documents.get(uri)?.version !== version) return;
       const stepStarted = performance.now();
-      const next = steps.next();
+      const next = timing.steps === 0 ? steps.next() : steps.next(lines);
+      const took = performance.now() - stepStarted;
       timing.steps++;
-      timing.longestStepMillis = Math.max(timing.longestStepMillis, performance.now() - stepStarted);
+      timing.longestStepMillis = Math.max(timing.longestStepMillis, took);
+      lines = nextStepLines(lines, took);
       if (next.done) {
         publish(uri, state, version, started, next.value.findings.map((f) => diagnosticOf(f, uri)), timing);
         return;
