@@ -31,7 +31,7 @@ function statedValue(
  * appended to `issues`. Returns null when there is nothing to state (unknown key, no value).
  */
 export function readItem(item: ItemNode, section: SectionId, line: number, ctx: ReadContext, issues: ReadIssue[]): StatedValue | null {
-  const field = fieldFor(section, item.keyName);
+  const field = item.field;
   if (!field) {
     if (item.key) issues.push(unknownKeyIssue(item, section, line));
     return null;

@@ -5,8 +5,7 @@
  * out, so `hr 118`, `bp 120/80` or `mode VC` never reach the detectors, while a free word such
  * as `mode Smith`, an unknown key or stray text does).
  */
-import { fieldFor } from '../fields/registry';
-import type { LineNode, Span } from '../syntax/tree';
+import type { ItemNode, LineNode } from '../syntax/tree';
 import { scan } from './scan';
 import type { PrivacyMatch } from './types';
 
@@ -18,69 +17,58 @@ export interface FreeText {
 
 export function freeTextOf(node: LineNode): FreeText[] {
   const out: FreeText[] = [];
+  eachFreeText(node, (text, start) => { out.push({ text, start }); });
+  return out;
+}
+
+/** Calls `visit` with each free-text part of a line (its text, and where it starts in the line). */
+function eachFreeText(node: LineNode, visit: (text: string, start: number) => void): void {
   const bodyEnd = node.comment ? node.comment.span.start : node.text.length;
   switch (node.kind) {
     case 'blank':
       break;
     case 'timepoint':
-      if (node.label) out.push({ text: node.label.text, start: node.label.span.start });
+      if (node.label) visit(node.label.text, node.label.span.start);
       break;
     case 'unknown': {
       const end = node.rest ? node.rest.span.end : node.first.span.end;
-      out.push({ text: node.text.slice(node.first.span.start, end), start: node.first.span.start });
+      visit(node.text.slice(node.first.span.start, end), node.first.span.start);
       break;
     }
     case 'section':
       if (node.section === 'note') {
-        if (node.prose) out.push({ text: node.prose.text, start: node.prose.span.start });
+        if (node.prose) visit(node.prose.text, node.prose.span.start);
       } else {
         const masked = maskReadings(node.text, bodyEnd, node);
-        if (masked !== '') out.push({ text: masked, start: 0 });
+        if (masked !== '') visit(masked, 0);
       }
       break;
   }
-  if (node.comment) out.push({ text: node.comment.text, start: node.comment.span.start });
-  return out;
+  if (node.comment) visit(node.comment.text, node.comment.span.start);
 }
 
 /**
  * The body of an item line (`text` up to `bodyEnd`) with each reading (known key, number or pair
- * value, unit) blanked out; '' when nothing else is there (the common case, found without
- * copying the line).
+ * value, unit; or a word the field lists) blanked out; '' when nothing else is there (the common
+ * case, found without copying the line or allocating).
  */
 function maskReadings(text: string, bodyEnd: number, node: Extract<LineNode, { kind: 'section' }>): string {
-  const masked: Span[] = [];
-  for (const item of node.items) {
-    if (!item.value) continue;
-    const field = item.implied !== null && item.value.kind !== 'word' ? true : fieldFor(node.section, item.keyName);
-    if (!field) continue;
-    // A word is a reading when it is one the field lists (`mode VC`); any other word is free text.
-    if (item.value.kind === 'word' && (field === true || field.words?.[item.value.text.toLowerCase()] === undefined)) continue;
-    masked.push(item.span);
-  }
-  // Blanks, commas and the slashes of a shorthand gas between its numbers are no text.
-  const isFree = (c: number) => c !== 0x20 && c !== 0x09 && c !== 0x2c && c !== 0x2f;
-  // Common case: nothing but the section word, readings, blanks and commas. Nothing to scan.
+  // Common case: nothing but the section word, readings, blanks, commas and slashes.
+  let at = node.sectionToken.span.end;
   let free = false;
-  let at0 = node.sectionToken.span.end;
-  for (const span of masked) {
-    for (let i = at0; i < span.start && i < bodyEnd; i++) {
-      if (isFree(text.charCodeAt(i))) { free = true; break; }
-    }
-    if (free) break;
-    at0 = Math.max(at0, span.end);
+  for (const item of node.items) {
+    if (!isReading(item)) continue;
+    const span = item.span;
+    if (hasFreeText(text, at, Math.min(span.start, bodyEnd))) { free = true; break; }
+    at = Math.max(at, span.end);
   }
-  if (!free) {
-    for (let i = at0; i < bodyEnd; i++) {
-      if (isFree(text.charCodeAt(i))) { free = true; break; }
-    }
-  }
-  if (!free) return '';
+  if (!free && !hasFreeText(text, at, bodyEnd)) return '';
   const body = text.slice(0, bodyEnd);
-  if (masked.length === 0) return body;
   let out = '';
-  let at = 0;
-  for (const span of masked) {
+  at = 0;
+  for (const item of node.items) {
+    if (!isReading(item)) continue;
+    const span = item.span;
     const start = Math.max(at, Math.min(span.start, body.length));
     const end = Math.max(start, Math.min(span.end, body.length));
     out += body.slice(at, start) + ' '.repeat(end - start);
@@ -89,13 +77,35 @@ function maskReadings(text: string, bodyEnd: number, node: Extract<LineNode, { k
   return out + body.slice(at);
 }
 
-/** Identifiers on one line, with spans in line coordinates. */
-export function scanLine(node: LineNode): PrivacyMatch[] {
-  const out: PrivacyMatch[] = [];
-  for (const part of freeTextOf(node)) {
-    for (const m of scan(part.text)) {
-      out.push({ ...m, span: { start: m.span.start + part.start, end: m.span.end + part.start } });
-    }
-  }
-  return out;
+/** A reading: a known key with a number or pair value, or with a word the field lists (`mode VC`). */
+function isReading(item: ItemNode): boolean {
+  const value = item.value;
+  if (!value) return false;
+  if (item.implied !== null && value.kind !== 'word') return true;
+  const field = item.field;
+  if (!field) return false;
+  return value.kind !== 'word' || field.words?.[value.text.toLowerCase()] !== undefined;
 }
+
+/** Whether `text[from, to)` holds anything but blanks, commas and slashes (the slashes of a shorthand gas). */
+function hasFreeText(text: string, from: number, to: number): boolean {
+  for (let i = from; i < to; i++) {
+    const c = text.charCodeAt(i);
+    if (c !== 0x20 && c !== 0x09 && c !== 0x2c && c !== 0x2f) return true;
+  }
+  return false;
+}
+
+/** Identifiers on one line, with spans in line coordinates. */
+export function scanLine(node: LineNode): readonly PrivacyMatch[] {
+  let out: PrivacyMatch[] | null = null;
+  eachFreeText(node, (text, start) => {
+    for (const m of scan(text)) {
+      (out ??= []).push({ ...m, span: { start: m.span.start + start, end: m.span.end + start } });
+    }
+  });
+  return out ?? NO_MATCHES;
+}
+
+/** Most lines hold no identifier: they share one empty list. */
+const NO_MATCHES: readonly PrivacyMatch[] = Object.freeze([]);

@@ -13,9 +13,9 @@ import { KIND_PRIORITY, type PrivacyMatch } from './types';
 /** Longer lines are scanned only up to this many characters (a note line is far shorter). */
 export const MAX_SCAN_LENGTH = 10_000;
 
-export function scan(text: string): PrivacyMatch[] {
+export function scan(text: string): readonly PrivacyMatch[] {
   const input = text.length > MAX_SCAN_LENGTH ? text.slice(0, MAX_SCAN_LENGTH) : text;
-  if (!mayHoldIdentifier(input)) return [];
+  if (!mayHoldIdentifier(input)) return NONE;
   const all = [...findEmails(input), ...findDates(input), ...findNumberIdentifiers(input), ...findPostalCodes(input), ...findNames(input)];
   all.sort((a, b) => a.span.start - b.span.start || (b.span.end - b.span.start) - (a.span.end - a.span.start) || KIND_PRIORITY[b.kind] - KIND_PRIORITY[a.kind]);
   // Keep the best match of each overlapping cluster: a later match replaces the kept one only
@@ -33,6 +33,9 @@ export function scan(text: string): PrivacyMatch[] {
   }
   return kept;
 }
+
+/** What most texts hold: one shared empty list. */
+const NONE: readonly PrivacyMatch[] = Object.freeze([]);
 
 /** Full month names that count in lower case (see dates.ts). */
 const LOWER_CASE_MONTHS = ['january', 'february', 'april', 'june', 'july', 'september', 'october', 'november', 'december'];

@@ -3,7 +3,7 @@
  * becomes a syntax issue on that node. Lines are parsed independently, so a changed line can
  * be re-parsed alone (see `parseLine`). Linear in the length of the text.
  */
-import { fieldFor, FIELDS } from '../fields/registry';
+import { fieldFor, FIELDS, type FieldDef } from '../fields/registry';
 import { SECTIONS, sectionByName, type SectionId } from '../fields/sections';
 import { isKnownUnitSpelling, UNITS } from '../fields/units';
 import { closest } from '../util/suggest';
@@ -342,24 +342,26 @@ function readSlashGroup(chunk: Chunk, source: string): PairValue | null {
 }
 
 /**
- * A `key value [unit]` item. It is its own span (`span` returns the item, which holds `start`
- * and `end`), and it holds its key's text rather than a token: the key starts the item, so
- * `key` builds the token when asked. One object per item of a big note instead of three.
+ * An item: `key value [unit]`, or a value whose key is implied by its place (a shorthand gas part,
+ * an oxygen device and its flow). Every item is of this one class (so code that reads items sees
+ * one shape). It is its own span (`span` returns the item, which holds `start` and `end`), and it
+ * holds its key's text rather than a token: the key starts the item, so `key` builds the token when
+ * asked. One object per item of a big note instead of three.
  */
-class KeyedItem implements ItemNode, Span {
-  readonly implied = null;
-
+class Item implements ItemNode, Span {
   constructor(
-    readonly keyText: string,
+    private readonly keyText: string | null,
     readonly keyName: string,
+    readonly implied: ItemNode['implied'],
+    readonly field: FieldDef | null,
     readonly value: ValueNode | null,
     readonly unit: Token | null,
     readonly start: number,
     readonly end: number,
   ) {}
 
-  get key(): Token {
-    return new Chunk(this.keyText, this.start, this.start + this.keyText.length, false);
+  get key(): Token | null {
+    return this.keyText === null ? null : new Chunk(this.keyText, this.start, this.start + this.keyText.length, false);
   }
 
   get span(): Span {
@@ -419,7 +421,7 @@ function parseItems(section: SectionId, chunks: readonly Chunk[], start: number,
         group.parts.forEach((part, k) => {
           const keyName = SHORTHAND_KEYS[k]!;
           const isPressure = keyName === 'pco2' || keyName === 'po2';
-          items.push({ key: null, keyName, implied: 'shorthand', value: part, unit: isPressure ? unit : null, span: part.span });
+          items.push(new Item(null, keyName, 'shorthand', fieldFor(section, keyName) ?? null, part, isPressure ? unit : null, part.span.start, part.span.end));
         });
       }
     }
@@ -431,7 +433,7 @@ function parseItems(section: SectionId, chunks: readonly Chunk[], start: number,
     if (dev) {
       i = start + dev.used;
       const value: WordValue = { kind: 'word', text: dev.text, span: dev.span };
-      items.push({ key: null, keyName: 'device', implied: 'device', value, unit: null, span: dev.span });
+      items.push(new Item(null, 'device', 'device', fieldFor(section, 'device') ?? null, value, null, dev.span.start, dev.span.end));
       const next = chunks[i];
       if (next && !next.afterComma) {
         const num = readNumberChunk(next, source);
@@ -439,7 +441,7 @@ function parseItems(section: SectionId, chunks: readonly Chunk[], start: number,
           i++;
           const unit = takeUnit(num.gluedUnit);
           const keyName = dev.text.toLowerCase() === 'cpap' ? 'level' : 'flow';
-          items.push({ key: null, keyName, implied: 'device-flow', value: num.value, unit, span: { start: num.value.span.start, end: (unit ?? num.value).span.end } });
+          items.push(new Item(null, keyName, 'device-flow', fieldFor(section, keyName) ?? null, num.value, unit, num.value.span.start, (unit ?? num.value).span.end));
         }
       }
     }
@@ -493,7 +495,7 @@ function parseItems(section: SectionId, chunks: readonly Chunk[], start: number,
       issues.push({ check: 'missing-value', span: key.span, message: `\`${key.text}\` has no value.`, fixes: [] });
     }
     const end = (unit ?? value ?? key).span.end;
-    items.push(new KeyedItem(key.text, keyName, value, unit, key.start, end));
+    items.push(new Item(key.text, keyName, null, field ?? null, value, unit, key.start, end));
   }
 
   // Decimal commas anywhere in the line's numbers.

@@ -4,6 +4,7 @@
  * plus the node's line number; `toRange` turns a span into an editor range.
  */
 import type { Fix, Range } from '../types';
+import type { FieldDef } from '../fields/registry';
 import type { SectionId } from '../fields/sections';
 
 /** A half-open span [start, end) of UTF-16 code units within one line. */
@@ -50,6 +51,8 @@ export interface ItemNode {
   /** The key the item stands for, lower case (implied keys use the canonical key). */
   readonly keyName: string;
   readonly implied: 'shorthand' | 'device' | 'device-flow' | null;
+  /** The field the key names in the line's section; null for a key the section does not have. */
+  readonly field: FieldDef | null;
   readonly value: ValueNode | null;
   readonly unit: Token | null;
   readonly span: Span;
