@@ -83,6 +83,8 @@ export class DeriveContext {
   private readonly results: (Evaluated | typeof IN_PROGRESS | undefined)[];
   private memos: Map<string, unknown> | null = null;
   private terms: Map<string, Term> | null = null;
+  /** Inputs read so far (null: not in force). A read of the values in force builds the value. */
+  private inputs: Map<string, InputValue | null> | null = null;
 
   constructor(
     readonly timepoint: Timepoint,
@@ -101,9 +103,20 @@ export class DeriveContext {
     return value;
   }
 
+  /** The value in force for a field, read once per context. */
+  input(id: string): InputValue | null {
+    const inputs = (this.inputs ??= new Map<string, InputValue | null>());
+    let input = inputs.get(id);
+    if (input === undefined) {
+      input = this.timepoint.values.get(id) ?? null;
+      inputs.set(id, input);
+    }
+    return input;
+  }
+
   /** A usable stated value in force, as a formula input. */
   field(id: string, name?: string): Term | null {
-    const input = this.timepoint.values.get(id);
+    const input = this.input(id);
     if (!input || !input.stated.usable || input.stated.value === null) return null;
     // Several formulas read the same input under the same name: one term object serves them.
     const terms = (this.terms ??= new Map<string, Term>());
@@ -116,15 +129,14 @@ export class DeriveContext {
 
   /** A word value in force (device, mode, sex). */
   word(id: string): { word: string; input: InputValue } | null {
-    const input = this.timepoint.values.get(id);
+    const input = this.input(id);
     if (!input || !input.stated.usable || input.stated.word === null) return null;
     return { word: input.stated.word, input };
   }
 
   /** Whether a field is stated at this timepoint (not carried). */
   statedHere(id: string): boolean {
-    const v = this.timepoint.values.get(id);
-    return v !== undefined && v.origin.kind === 'here';
+    return this.input(id)?.origin.kind === 'here';
   }
 
   /** Another derived value, computed once; null when it cannot be computed here. */
@@ -226,7 +238,7 @@ function termOf(input: InputValue, name?: string): Term {
 
 function anchorLine(def: DerivedDef, c: DeriveContext): number | null {
   for (const id of def.anchors) {
-    const v = c.timepoint.values.get(id);
+    const v = c.input(id);
     if (v && v.origin.kind === 'here') return v.origin.line;
   }
   return null;

@@ -81,12 +81,12 @@ export function derivedDef(id: string): DerivedDefinition | undefined {
  * anchor input stated here (in force with origin `here`). Read from the few values stated here
  * rather than by asking every definition about every anchor.
  */
-function relevantSlots(tp: Timepoint): number {
+function relevantSlots(tp: Timepoint, ctx: DeriveContext): number {
   let mask = 0;
   for (const s of tp.stated) {
     const slots = ANCHORED.get(s.fieldId);
     if (slots === undefined || (mask & slots) === slots) continue;
-    if (tp.values.get(s.fieldId)?.origin.kind === 'here') mask |= slots;
+    if (ctx.input(s.fieldId)?.origin.kind === 'here') mask |= slots;
   }
   return mask;
 }
@@ -122,7 +122,7 @@ class TimepointValues implements TimepointDerivation {
   }
 
   private mask(): number {
-    return (this.relevant ??= relevantSlots(this.tp));
+    return (this.relevant ??= relevantSlots(this.tp, this.ctx));
   }
 
   private all(): { derived: DerivedValue[]; missing: MissingValue[]; notApplicable: NotApplicable[] } {
