@@ -11,7 +11,8 @@ export function renderDerived(_tp: Timepoint, d: TimepointDerivation | undefined
   if (shown.length > 0) {
     const parts = shown.map((v) => {
       const number = v.range ? `${formatNumber(v.range.low, v.decimals)}–${formatNumber(v.range.high, v.decimals)}` : formatNumber(v.value, v.decimals);
-      const marks = `${v.estimate ? ' est.' : ''}${v.usesCarried ? '*' : ''}`;
+      // An estimate says so once: in its short name (`FiO2 est`) or by a mark after it.
+      const marks = `${v.estimate && !/\best\b/.test(v.short) ? ' est.' : ''}${v.usesCarried ? '*' : ''}`;
       return `${v.short} ${p.bold(number)}${v.unit ? ` ${v.unit}` : ''}${marks}`;
     });
     lines.push(`  ${p.green('derived'.padEnd(8))} ${parts.join(p.dim(' · '))}`);
