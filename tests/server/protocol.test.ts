@@ -6,6 +6,7 @@ import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { CodeAction, CompletionItem, Diagnostic, DocumentSymbol, FoldingRange, Hover, InlayHint, TextEdit } from 'vscode-languageserver-protocol';
+import { checkNote } from '../../server/src/core/check-note';
 import { applyEdits } from '../../server/src/core/service/text-edits';
 import { generateNote } from '../bench/generate.mjs';
 import { startClient, type LspClient } from './lsp-client';
@@ -255,6 +256,38 @@ describe('robustness', () => {
     const report = await client.analysedOf(bigUri);
     expect(report.steps).toBeGreaterThan(5);
     expect(report.longestStepMillis).toBeLessThan(report.millis);
+  });
+
+  it('drops the steps left when a big note changes while it is read, and answers the newest version only', async () => {
+    const path = join(process.cwd(), 'big-changed-while-read.pneu');
+    const uri = pathToFileURL(path).toString();
+    const first = generateNote(3000);
+    const configured = client.configured(uri);
+    client.open(path, first);
+    await configured;
+    const lines = first.split('\n');
+    lines[lines.length - 4] = 'abg       7.21/66/58/26';
+    const second = lines.join('\n');
+    client.change(uri, second, 2);
+    const p = await client.diagnostics(uri, (d) => d.version === 2, 60000);
+    expect(client.published.filter((d) => d.uri === uri).map((d) => d.version)).toEqual([2]);
+    const expected = checkNote(second).findings;
+    expect(p.diagnostics.map((d) => [d.code, d.range.start.line])).toEqual(expected.map((f) => [f.code, f.range.start.line]));
+  });
+
+  it('stops reading a big note that is closed while it is read, and keeps serving', async () => {
+    const path = join(process.cwd(), 'big-closed-while-read.pneu');
+    const uri = pathToFileURL(path).toString();
+    const configured = client.configured(uri);
+    client.open(path, generateNote(3000));
+    await configured;
+    void client.connection.sendNotification('textDocument/didClose', { textDocument: { uri } });
+    const cleared = await client.diagnostics(uri, (d) => d.diagnostics.length === 0);
+    expect(cleared.diagnostics).toEqual([]);
+    const small = client.open(join(process.cwd(), 'after-closed-big.pneu'), '@ 08:00\nvitals spo2 104\n');
+    expect(codes((await client.diagnostics(small)).diagnostics)).toEqual(['PN306']);
+    // Nothing for the closed note comes after it was cleared.
+    expect(client.published.filter((d) => d.uri === uri && d.diagnostics.length > 0)).toEqual([]);
   });
 
   it('degrades gracefully on a 20 MB note, and keeps serving others', async () => {
