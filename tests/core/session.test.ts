@@ -207,6 +207,16 @@ describe('NoteSession.steps (a note read in steps)', () => {
     );
   });
 
+  it('says beforehand whether a text would take steps', () => {
+    const session = new NoteSession();
+    expect(session.wouldStep(big, 200)).toBe(true);
+    expect(session.wouldStep('@ 08:00\nvitals hr 80', 200)).toBe(false); // fits in one step
+    session.update(big);
+    expect(session.wouldStep(big, 200)).toBe(false);
+    expect(session.wouldStep(big.replace('hour 150', 'hour 150 (edited)'), 200)).toBe(false);
+    expect(session.wouldStep(big.replaceAll('vitals    hr', 'vitals hr'), 200)).toBe(true);
+  });
+
   it('sizes the steps that follow by what next() is given', () => {
     const session = new NoteSession();
     const steps = session.steps(big, 100);

@@ -226,37 +226,47 @@ describe('robustness', () => {
     expect(hints).toEqual([]);
   });
 
-  it('reads a big note in steps: requests about other notes are answered while it is analysed', async () => {
-    const small = client.open(join(process.cwd(), 'beside-big.pneu'), '@ 08:00\nvitals hr 80\n');
-    await client.diagnostics(small);
-    const big = join(process.cwd(), 'big-first-open.pneu');
-    const bigUri = pathToFileURL(big).toString();
-    const configured = client.configured(bigUri);
-    client.open(big, generateNote(5000)); // about 25,000 lines
-    await configured; // the server starts analysing it now
-    let bigDone = false;
-    let answeredMeanwhile = 0;
-    const diagnosed = client.diagnostics(bigUri, undefined, 60000).then((p) => { bigDone = true; return p; });
-    // Hovers on the small note, one after another, until the big note's diagnostics arrive. Read
-    // in one go, the big note would hold every one of them up until its diagnostics were sent.
-    while (!bigDone) {
-      const hover = await Promise.race([
-        client.connection.sendRequest<Hover | null>('textDocument/hover', { textDocument: { uri: small }, position: { line: 1, character: 8 } }),
-        diagnosed.then(() => 'done' as const),
-      ]);
-      if (hover === 'done' || bigDone) break;
-      expect(hover?.contents).toBeTruthy();
-      answeredMeanwhile++;
-    }
-    expect(answeredMeanwhile).toBeGreaterThanOrEqual(3);
-    const p = await diagnosed;
-    expect(p.version).toBe(1);
-    expect(p.diagnostics.length).toBeGreaterThan(1000);
-    // The server says how it went: in steps, none of them the whole analysis.
-    const report = await client.analysedOf(bigUri);
-    expect(report.steps).toBeGreaterThan(5);
-    expect(report.longestStepMillis).toBeLessThan(report.millis);
-  });
+  // A big note is read in steps: requests about other notes are answered while it is analysed,
+  // and requests about the note itself wait until it is read. Read in one go, the big note
+  // would hold every request up until its diagnostics were sent. Either when its analysis has
+  // begun, or with a request about it before (an editor asks for hints as soon as it opens a note).
+  for (const when of ['once its analysis has begun', 'with a request about it before its analysis begins'] as const) {
+    it(`reads a big note in steps, ${when}`, async () => {
+      const small = client.open(join(process.cwd(), 'beside-big.pneu'), '@ 08:00\nvitals hr 80\n');
+      await client.diagnostics(small);
+      const big = join(process.cwd(), `big-first-open-${when.length}.pneu`);
+      const bigUri = pathToFileURL(big).toString();
+      const configured = client.configured(bigUri);
+      client.open(big, generateNote(5000)); // about 25,000 lines
+      if (when === 'once its analysis has begun') await configured;
+      let bigDone = false;
+      let answeredMeanwhile = 0;
+      const diagnosed = client.diagnostics(bigUri, undefined, 60000).then((p) => { bigDone = true; return p; });
+      const hints = client.connection.sendRequest<InlayHint[]>('textDocument/inlayHint', { textDocument: { uri: bigUri }, range: { start: { line: 100, character: 0 }, end: { line: 160, character: 0 } } })
+        .then((h) => ({ h, afterDiagnostics: bigDone }));
+      // Hovers on the small note, one after another, until the big note's diagnostics arrive.
+      while (!bigDone) {
+        const hover = await Promise.race([
+          client.connection.sendRequest<Hover | null>('textDocument/hover', { textDocument: { uri: small }, position: { line: 1, character: 8 } }),
+          diagnosed.then(() => 'done' as const),
+        ]);
+        if (hover === 'done' || bigDone) break;
+        expect(hover?.contents).toBeTruthy();
+        answeredMeanwhile++;
+      }
+      expect(answeredMeanwhile).toBeGreaterThanOrEqual(3);
+      const p = await diagnosed;
+      expect(p.version).toBe(1);
+      expect(p.diagnostics.length).toBeGreaterThan(1000);
+      const answered = await hints;
+      expect(answered.afterDiagnostics).toBe(true);
+      expect(answered.h.length).toBeGreaterThan(0);
+      // The server says how it went: in steps, none of them the whole analysis.
+      const report = await client.analysedOf(bigUri);
+      expect(report.steps).toBeGreaterThan(5);
+      expect(report.longestStepMillis).toBeLessThan(report.millis);
+    });
+  }
 
   it('drops the steps left when a big note changes while it is read, and answers the newest version only', async () => {
     const path = join(process.cwd(), 'big-changed-while-read.pneu');

@@ -97,6 +97,12 @@ export class NoteSession {
     return this.update(text);
   }
 
+  /** Whether `steps(text, linesPerStep)` would read in more than one step. */
+  wouldStep(text: string, linesPerStep = 1500): boolean {
+    const from = this.stepsFrom(text, linesPerStep);
+    return from !== null && nextCut(text, from, linesPerStep) < text.length;
+  }
+
   /** Where reading in steps starts (the start of the change), or null for one step. */
   private stepsFrom(text: string, linesPerStep: number): number | null {
     const old = this.lastText;

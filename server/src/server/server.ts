@@ -52,7 +52,27 @@ interface NoteState {
   timer: { readonly cancel: () => void } | null;
   /** The version whose diagnostics were last published. */
   published: number | null;
+  /**
+   * While the note is read in steps: settled when they end (read, superseded or closed).
+   * Requests about the note wait for it rather than read the rest of it at once.
+   */
+  reading: Promise<void> | null;
+  /** Settles `reading`. */
+  release: (() => void) | null;
   diagnostics: Diagnostic[];
+}
+
+/** Requests about the note wait from now until `closeGate`. */
+function openGate(state: NoteState): void {
+  if (state.reading) return;
+  state.reading = new Promise<void>((resolve) => { state.release = resolve; });
+}
+
+function closeGate(state: NoteState): void {
+  const release = state.release;
+  state.reading = null;
+  state.release = null;
+  release?.();
 }
 
 /** Where docs/checks.md lives next to the bundle (dist/../docs), for codeDescription links. */
@@ -158,7 +178,7 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     const key = settingsKey(settings.analysis);
     let state = notes.get(doc.uri);
     if (!state) {
-      state = { session: new NoteSession(settings.analysis), key, settings, timer: null, published: null, diagnostics: [] };
+      state = { session: new NoteSession(settings.analysis), key, settings, timer: null, published: null, diagnostics: [], reading: null, release: null };
       notes.set(doc.uri, state);
     } else if (state.key !== key) {
       state.session.setSettings(settings.analysis);
@@ -175,10 +195,11 @@ export function startServer(connection: Connection, collector: IdleCollector = n
   }
 
   /**
-   * Analyses a note and publishes its diagnostics. A note the session has not read yet is read
-   * in steps (`NoteSession.steps`) with a turn of the event loop between them, so opening a big
-   * note never holds up requests for others; a newer version cancels the steps left (through
-   * `state.timer`, like a pending analysis) and its own analysis goes on from what was read.
+   * Analyses a note and publishes its diagnostics. A note the session has not read yet, or a
+   * change of many lines, is read in steps (`NoteSession.steps`) with a turn of the event loop
+   * between them, so a big note never holds up requests about others; requests about the note
+   * itself wait until it is read (`afterReading`). A newer version cancels the steps left
+   * (through `state.timer`, like a pending analysis) and its analysis goes on from what was read.
    */
   function analyseAndPublish(uri: string): void {
     const doc = documents.get(uri);
@@ -202,24 +223,56 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     const steps = state.session.steps(text, FIRST_STEP_LINES);
     const timing = { steps: 0, longestStepMillis: 0 };
     let lines = FIRST_STEP_LINES;
-    const step = guard('analysis', undefined, () => {
+    const endReading = () => closeGate(state);
+    const step = () => {
       state.timer = null;
       // A newer version may have arrived meanwhile: its own analysis takes over.
-      if (documents.get(uri)?.version !== version) return;
+      if (documents.get(uri)?.version !== version) { endReading(); return; }
+      let next: IteratorResult<void, NoteResult>;
       const stepStarted = performance.now();
-      const next = timing.steps === 0 ? steps.next() : steps.next(lines);
+      try {
+        next = timing.steps === 0 ? steps.next() : steps.next(lines);
+      } catch (error) {
+        endReading();
+        connection.console.error(`pneumark: analysis failed: ${error instanceof Error ? error.stack ?? error.message : String(error)}`);
+        return;
+      }
       const took = performance.now() - stepStarted;
       timing.steps++;
       timing.longestStepMillis = Math.max(timing.longestStepMillis, took);
       lines = nextStepLines(lines, took);
       if (next.done) {
         publish(uri, state, version, started, next.value.findings.map((f) => diagnosticOf(f, uri)), timing);
+        endReading();
         return;
       }
+      openGate(state);
       const handle = setImmediate(step);
-      state.timer = { cancel: () => clearImmediate(handle) };
-    });
-    step(undefined);
+      state.timer = { cancel: () => { clearImmediate(handle); endReading(); } };
+    };
+    step();
+  }
+
+  /**
+   * `answer()` now when the note's analysis is at hand or cheap (an edit); otherwise once the note
+   * is read in steps, which this starts when no analysis is on its way (a request can come before
+   * the note's first analysis). So a request about a big note waits its turn instead of holding
+   * everything up while the rest of the note is read at once.
+   */
+  function afterReading<R>(uri: string, fallback: R, answer: () => R): R | Promise<R> {
+    const doc = documents.get(uri);
+    if (!doc) return answer();
+    const state = notes.get(uri) ?? guard('open', undefined, () => stateFor(doc))(undefined);
+    if (state && !state.reading && wouldStep(state, doc)) schedule(uri, true);
+    const reading = state?.reading;
+    if (!reading) return answer();
+    return reading.then(() => afterReading(uri, fallback, answer), () => fallback);
+  }
+
+  /** Whether analysing the document's text now would take steps (a first read, a big change). */
+  function wouldStep(state: NoteState, doc: TextDocument): boolean {
+    const text = doc.getText();
+    return text.length <= state.settings.maxNoteBytes && state.session.wouldStep(text, FIRST_STEP_LINES);
   }
 
   function publish(uri: string, state: NoteState, version: number, started: number, diagnostics: Diagnostic[], timing = { steps: 1, longestStepMillis: performance.now() - started }): void {
@@ -236,6 +289,9 @@ export function startServer(connection: Connection, collector: IdleCollector = n
   function schedule(uri: string, immediate: boolean): void {
     const state = notes.get(uri);
     state?.timer?.cancel();
+    // An analysis that will take steps: requests about the note wait for it from now on.
+    const doc = documents.get(uri);
+    if (state && doc && wouldStep(state, doc)) openGate(state);
     const delay = immediate ? 0 : (state?.settings.debounceMs ?? DEFAULT_CLIENT_SETTINGS.debounceMs);
     const run = () => {
       const s = notes.get(uri);
@@ -245,11 +301,11 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     // No debounce: right after the pending messages (a timer would wait a millisecond at least).
     if (delay === 0) {
       const handle = setImmediate(run);
-      if (state) state.timer = { cancel: () => clearImmediate(handle) };
+      if (state) state.timer = { cancel: () => { clearImmediate(handle); closeGate(state); } };
       return;
     }
     const handle = setTimeout(run, delay);
-    if (state) state.timer = { cancel: () => clearTimeout(handle) };
+    if (state) state.timer = { cancel: () => { clearTimeout(handle); closeGate(state); } };
   }
 
   documents.onDidOpen((e) => {
@@ -283,13 +339,13 @@ export function startServer(connection: Connection, collector: IdleCollector = n
   });
 
   const withResult = <P extends { textDocument: { uri: string } }, R>(name: string, fallback: R, body: (result: NoteResult, doc: TextDocument, state: NoteState, params: P) => R) =>
-    guard<P, R>(name, fallback, (params) => {
-      const doc = documents.get(params.textDocument.uri);
+    (params: P): R | Promise<R> => afterReading(params.textDocument.uri, fallback, () => guard<P, R>(name, fallback, (p) => {
+      const doc = documents.get(p.textDocument.uri);
       if (!doc) return fallback;
       const state = stateFor(doc);
       const result = resultFor(doc, state);
-      return result ? body(result, doc, state, params) : fallback;
-    });
+      return result ? body(result, doc, state, p) : fallback;
+    })(params));
 
   connection.onHover(withResult('hover', null, (result, _doc, _state, params) => {
     const hover = hoverAt(result, params.position);
@@ -303,18 +359,20 @@ export function startServer(connection: Connection, collector: IdleCollector = n
       .map((h) => toInlayHint(h, deferHintTooltips ? { uri: doc.uri, version: doc.version, line: h.position.line, category: h.category } : null))));
 
   // The tooltip of a hint sent without it: the same hint of the same version of the note.
-  connection.languages.inlayHint.resolve((unresolved: InlayHint) => guard('inlay hint tooltip', unresolved, (hint: InlayHint): InlayHint => {
-    const ref: unknown = hint.data;
-    if (!isHintRef(ref)) return hint;
-    const doc = documents.get(ref.uri);
-    if (!doc || doc.version !== ref.version) return hint;
-    const state = stateFor(doc);
-    const result = resultFor(doc, state);
-    if (!result) return hint;
-    const found = inlayHints(result, { start: ref.line, end: ref.line }, { categories: state.settings.hints })
-      .find((h) => h.category === ref.category && h.position.line === ref.line);
-    return found ? { ...hint, tooltip: { kind: 'markdown', value: found.tooltipMarkdown } } : hint;
-  })(unresolved));
+  connection.languages.inlayHint.resolve((unresolved: InlayHint) => {
+    const ref: unknown = unresolved.data;
+    if (!isHintRef(ref)) return unresolved;
+    return afterReading(ref.uri, unresolved, () => guard('inlay hint tooltip', unresolved, (hint: InlayHint): InlayHint => {
+      const doc = documents.get(ref.uri);
+      if (!doc || doc.version !== ref.version) return hint;
+      const state = stateFor(doc);
+      const result = resultFor(doc, state);
+      if (!result) return hint;
+      const found = inlayHints(result, { start: ref.line, end: ref.line }, { categories: state.settings.hints })
+        .find((h) => h.category === ref.category && h.position.line === ref.line);
+      return found ? { ...hint, tooltip: { kind: 'markdown', value: found.tooltipMarkdown } } : hint;
+    })(unresolved));
+  });
 
   connection.onCodeAction(withResult('code actions', [], (result, doc, state, params) => {
     const diagnostics = params.context.diagnostics.length > 0 ? params.context.diagnostics : state.diagnostics.filter((d) => rangesOverlap(d.range, params.range));
@@ -336,26 +394,26 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     return doc ? formatEdits(doc.getText(), { start: params.range.start.line, end: params.range.end.line }) : [];
   }));
 
-  connection.onRequest(TRENDS_REQUEST, guard('trends', null, (params: TrendsParams): TrendsResult | null => {
-    const doc = documents.get(params.uri);
+  connection.onRequest(TRENDS_REQUEST, (params: TrendsParams) => afterReading(params.uri, null, () => guard('trends', null, (p: TrendsParams): TrendsResult | null => {
+    const doc = documents.get(p.uri);
     if (!doc) return null;
     const result = resultFor(doc);
-    return { uri: params.uri, version: doc.version, points: result ? trendPoints(result) : [] };
-  }));
+    return { uri: p.uri, version: doc.version, points: result ? trendPoints(result) : [] };
+  })(params)));
 
-  connection.onRequest(SUMMARY_REQUEST, guard('summary', null, (params: SummaryParams): SummaryResult | null => {
-    const doc = documents.get(params.uri);
+  connection.onRequest(SUMMARY_REQUEST, (params: SummaryParams) => afterReading(params.uri, null, () => guard('summary', null, (p: SummaryParams): SummaryResult | null => {
+    const doc = documents.get(p.uri);
     if (!doc) return null;
     const result = resultFor(doc);
-    return result ? timepointSummary(result, params.line) : null;
-  }));
+    return result ? timepointSummary(result, p.line) : null;
+  })(params)));
 
-  connection.onRequest(CONVERT_UNITS_REQUEST, guard('convert units', [], (params: ConvertUnitsParams) => {
-    const doc = documents.get(params.uri);
-    if (!doc || (params.to !== 'mmHg' && params.to !== 'kPa')) return [];
+  connection.onRequest(CONVERT_UNITS_REQUEST, (params: ConvertUnitsParams) => afterReading(params.uri, [], () => guard('convert units', [], (p: ConvertUnitsParams) => {
+    const doc = documents.get(p.uri);
+    if (!doc || (p.to !== 'mmHg' && p.to !== 'kPa')) return [];
     const result = resultFor(doc);
-    return result ? convertNoteUnits(result, params.to) : [];
-  }));
+    return result ? convertNoteUnits(result, p.to) : [];
+  })(params)));
 
   documents.listen(connection);
   connection.listen();
