@@ -297,6 +297,8 @@ export function startServer(connection: Connection, collector: IdleCollector = n
       const s = notes.get(uri);
       if (s) s.timer = null;
       guard('analysis', undefined, analyseAndPublish)(uri);
+      // Nothing left to do for it (done, or failed before its steps): requests need not wait.
+      if (s && s.timer === null) closeGate(s);
     };
     // No debounce: right after the pending messages (a timer would wait a millisecond at least).
     if (delay === 0) {
