@@ -31,6 +31,8 @@ export class NoteSession {
   private starts: number[] = [];
   private timelineCache: TimelineCache | null = null;
   private findings: TimepointFindingsCache = new WeakMap();
+  /** The last answer of `changed`. */
+  private lastChange: { readonly old: string; readonly text: string; readonly prefix: number; readonly suffix: number } | null = null;
   /** The last update was a step of `steps` short of the whole note. */
   private partial = false;
   private statsValue: SessionStats = { parsedLines: 0, reusedTimepoints: 0, timepoints: 0 };
@@ -58,6 +60,7 @@ export class NoteSession {
     this.partial = false;
     if (this.last && text === this.lastText) return this.last;
     const { tree, parsed } = this.parse(text);
+    this.lastChange = null; // it holds the old text
     const { timeline, cache } = buildTimelineIncremental(tree, this.settings, this.timelineCache);
     this.timelineCache = cache;
     // Derived values are computed for the timepoints whose findings are not kept from the last
@@ -108,11 +111,23 @@ export class NoteSession {
     const old = this.lastText;
     if (old === null) return 0;
     if (old === text) return null;
-    const prefix = commonPrefix(old, text);
+    const { prefix, suffix } = this.changed(old, text);
     // Steps left unfinished (the note changed meanwhile) go on from what they had read.
     if (this.partial) return prefix;
-    const suffix = commonSuffix(old, text, Math.min(old.length, text.length) - prefix);
     return linesBetween(text, prefix, text.length - suffix, linesPerStep) > linesPerStep ? prefix : null;
+  }
+
+  /**
+   * The lengths of the common start and end of two texts (the changed stretch lies between). The
+   * last answer is kept: a server asks about the same two texts before and while updating.
+   */
+  private changed(old: string, text: string): { readonly prefix: number; readonly suffix: number } {
+    const known = this.lastChange;
+    if (known && known.old === old && known.text === text) return known;
+    const prefix = commonPrefix(old, text);
+    const suffix = commonSuffix(old, text, Math.min(old.length, text.length) - prefix);
+    this.lastChange = { old, text, prefix, suffix };
+    return this.lastChange;
   }
 
   /**
@@ -137,8 +152,7 @@ export class NoteSession {
     }
     const m = before.length;
     const oldStarts = this.starts;
-    const prefix = commonPrefix(old, text);
-    const suffix = commonSuffix(old, text, Math.min(old.length, text.length) - prefix);
+    const { prefix, suffix } = this.changed(old, text);
     // A leading line is unchanged when its text, its terminator and the first character after
     // it lie in the common prefix (so a lone `\r` cannot have become `\r\n`).
     let head = 0;
