@@ -24,6 +24,7 @@ import { barometricFromAltitude } from './ambient';
 import type { InputValue, Origin, StatedValue, Timepoint, TimepointTime } from './model';
 import type { ReadIssue } from './read-issues';
 import { readItem } from './read-value';
+import { pushAll } from '../util/lists';
 
 interface Held {
   readonly stated: StatedValue;
@@ -175,7 +176,7 @@ function processBlock(nodes: readonly LineNode[], index: number, endLine: number
     const stated = readLine(node, mutable, settings, issues);
     const target = inHeader ? header : tp!.stated;
     duplicates(node.section, stated, inHeader ? seenInHeader : seenAtTimepoint, issues);
-    target.push(...stated);
+    pushAll(target, stated);
     apply(node.section, stated, tp ? tp.index : -1, tp ? tp.label : 'header', mutable);
   }
   const stateOut = reuseEqual(mutable, previousOut);

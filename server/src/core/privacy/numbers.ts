@@ -11,6 +11,7 @@
 import { followedByUnit } from './quantities';
 import { endsWithPhrase, isAlnumAt, isDigitAt, isLetterAt, runsOf, withoutTrailing, wordsBefore } from './text';
 import { match, type PrivacyMatch } from './types';
+import { pushAll } from '../util/lists';
 
 interface DigitGroup {
   readonly start: number;
@@ -269,6 +270,6 @@ export function findNumberIdentifiers(text: string): PrivacyMatch[] {
     const m = classify(text, c);
     if (m) out.push(m);
   }
-  out.push(...mixedIdentifiers(text));
+  pushAll(out, mixedIdentifiers(text));
   return out;
 }

@@ -21,6 +21,7 @@ import { applyEdits, editsOverlap } from './text-edits';
 import { displayUnit } from '../analysis/read-value';
 import { convertNoteUnits, itemConversionEdits, numberIn, otherUnit, shorthandConversionEdits, shorthandPressures, type GasUnit } from './unit-conversion';
 import type { ActionInfo } from './types';
+import { pushAll } from '../util/lists';
 
 export { convertNoteUnits } from './unit-conversion';
 
@@ -42,10 +43,10 @@ export function codeActions(result: NoteResult, range: Range): ActionInfo[] {
   }
 
   // (b), (c), (e): the value under the cursor
-  actions.push(...valueActions(result, range));
+  pushAll(actions, valueActions(result, range));
 
   // (d) fix all of a kind
-  actions.push(...fixAllActions(result, range));
+  pushAll(actions, fixAllActions(result, range));
   return actions;
 }
 
@@ -63,9 +64,10 @@ function valueActions(result: NoteResult, range: Range): ActionInfo[] {
     if (stated && field) {
       onGas ||= field.dimension === 'gas-pressure';
       if (hit.item.implied === 'shorthand') {
-        out.push(...shorthandActions(result, line));
+        pushAll(out, shorthandActions(result, line));
       } else {
-        out.push(...conversionAction(stated), ...addUnitAction(stated));
+        pushAll(out, conversionAction(stated));
+        pushAll(out, addUnitAction(stated));
       }
     }
   }
@@ -169,7 +171,7 @@ function safeEdits(findings: readonly Finding[]): { edits: TextEdit[]; codes: st
     const fix = preferredFix(f);
     if (!fix || fix.edits.length === 0) continue;
     if (editsOverlap([...edits, ...fix.edits])) continue;
-    edits.push(...fix.edits);
+    pushAll(edits, fix.edits);
     codes.add(f.code);
     count++;
   }

@@ -165,7 +165,7 @@ function parseTimepoint(body: string, chunks: Chunk[], line: number, text: strin
   // `@07:40` is read like `@ 07:40`.
   const rest: Chunk[] = [];
   if (first.text.length > 1) rest.push(new Chunk(first.text.slice(1), first.start + 1, first.end, false));
-  rest.push(...chunks.slice(1));
+  for (let k = 1; k < chunks.length; k++) rest.push(chunks[k]!);
 
   let time: TimeSpec | null = null;
   let used = 0;

@@ -1,0 +1,8 @@
+/**
+ * Appends every item of `items` to `target`. `target.push(...items)` passes each item as an
+ * argument, and a long enough list (one line of a note can hold tens of thousands of items)
+ * overflows the call stack; this does not.
+ */
+export function pushAll<T>(target: T[], items: readonly T[]): void {
+  for (const item of items) target.push(item);
+}
