@@ -77,12 +77,14 @@ export function readItem(item: ItemNode, section: SectionId, line: number, ctx: 
     if (value === null) return null;
     if (field.hard && !within(value, field.hard)) usable = false;
   } else {
-    parts = [];
-    for (const p of v.parts) {
-      const c = convert(p.value, readUnit, canonical);
+    // Of its exact length: an array grown by push keeps room for 17 numbers, and a big note keeps
+    // thousands of these.
+    parts = new Array<number>(v.parts.length);
+    for (let k = 0; k < v.parts.length; k++) {
+      const c = convert(v.parts[k]!.value, readUnit, canonical);
       if (c === null) return null;
       if (field.hard && !within(c, field.hard)) usable = false;
-      parts.push(c);
+      parts[k] = c;
     }
   }
 

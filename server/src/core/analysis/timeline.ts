@@ -395,8 +395,10 @@ function isHereOnly(s: StatedValue): boolean {
 }
 
 function freeze(b: { index: number; line: number | null; label: string; startLine: number; time: TimepointTime; stated: StatedValue[] }, endLine: number, state: CarryState, settings: Settings): Timepoint {
-  const values = new ValuesInForce(b.index, state, b.stated);
-  return { index: b.index, line: b.line, label: b.label, startLine: b.startLine, endLine, time: b.time, stated: b.stated, values, barometricMmhg: barometricInForce(state.place, settings) };
+  // Kept as long as the timepoint: a copy of its exact length (an array grown by push keeps room to spare).
+  const stated = b.stated.slice();
+  const values = new ValuesInForce(b.index, state, stated);
+  return { index: b.index, line: b.line, label: b.label, startLine: b.startLine, endLine, time: b.time, stated, values, barometricMmhg: barometricInForce(state.place, settings) };
 }
 
 function originOf(held: Held, tp: number): Origin {

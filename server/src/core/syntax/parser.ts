@@ -338,7 +338,7 @@ function readSlashGroup(chunk: Chunk, source: string): PairValue | null {
     from = slash + 1;
     slash = text.indexOf('/', from);
   }
-  return { kind: 'pair', text, parts, span: chunk };
+  return { kind: 'pair', text, parts: parts.slice(), span: chunk }; // exact length (see parseItems)
 }
 
 /**
@@ -389,7 +389,7 @@ function deviceWordAt(chunks: readonly Chunk[], i: number): { text: string; span
 }
 
 /** `source` is the text of the line (spans and numbers' texts refer to it). */
-function parseItems(section: SectionId, chunks: readonly Chunk[], start: number, issues: SyntaxIssue[], source: string): ItemNode[] {
+function parseItems(section: SectionId, chunks: readonly Chunk[], start: number, issues: SyntaxIssue[], source: string): readonly ItemNode[] {
   const items: ItemNode[] = [];
   let i = start;
   const n = chunks.length;
@@ -512,5 +512,7 @@ function parseItems(section: SectionId, chunks: readonly Chunk[], start: number,
       });
     }
   }
-  return items;
+  // Kept as long as the line: a copy of its exact length (an array grown by push keeps room to
+  // spare, and a big note has thousands of item lists).
+  return items.length === 0 ? NO_ITEMS : items.slice();
 }
