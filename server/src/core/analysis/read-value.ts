@@ -17,13 +17,33 @@ export interface ReadContext extends BoundsContext {
   readonly gasUnit: 'mmHg' | 'kPa';
 }
 
-/** A stated value with a fixed shape (one object literal, so reading stays cheap on large notes). */
-function statedValue(
-  field: FieldDef, section: SectionId, line: number, item: ItemNode,
-  value: number | null, parts: number[] | null, word: string | null, unit: string | null, readUnit: string | null,
-  unitImplied: boolean, unitDoubt: string | null, usable: boolean,
-): StatedValue {
-  return { fieldId: field.id, section, line, item, value, parts, word, unit, readUnit, unitImplied, unitDoubt, usable };
+/**
+ * A stated value, one per value of a note, kept as long as the note: an object of one shape whose
+ * field id and canonical unit are read from the item's field (the item knows it) rather than kept.
+ */
+class Stated implements StatedValue {
+  constructor(
+    readonly section: SectionId,
+    readonly line: number,
+    readonly item: ItemNode,
+    readonly value: number | null,
+    readonly parts: readonly number[] | null,
+    readonly word: string | null,
+    readonly readUnit: string | null,
+    readonly unitImplied: boolean,
+    readonly unitDoubt: string | null,
+    readonly usable: boolean,
+  ) {}
+
+  get fieldId(): string {
+    return this.item.field!.id;
+  }
+
+  /** The field's canonical unit; null for a word. */
+  get unit(): string | null {
+    const field = this.item.field!;
+    return field.kind === 'word' ? null : field.unit ?? null;
+  }
 }
 
 /**
@@ -43,9 +63,9 @@ export function readItem(item: ItemNode, section: SectionId, line: number, ctx: 
     const word = canonicalWord(field, v.text);
     if (word === null) {
       issues.push(unknownWordIssue(item, field, line));
-      return statedValue(field, section, line, item, null, null, null, null, null, false, null, false);
+      return new Stated(section, line, item, null, null, null, null, false, null, false);
     }
-    return statedValue(field, section, line, item, null, null, word, null, null, false, null, true);
+    return new Stated(section, line, item, null, null, word, null, false, null, true);
   }
 
   if ((field.kind === 'pair') !== (v.kind === 'pair') || v.kind === 'word') return null; // shape problems are reported by the syntax checks
@@ -61,7 +81,7 @@ export function readItem(item: ItemNode, section: SectionId, line: number, ctx: 
     for (const u of candidates) if (field.units?.includes(u.id)) { readUnit = u; break; }
     if (!readUnit) {
       issues.push(candidates.length === 0 ? unknownUnitIssue(item, field, line) : unitNotAllowedIssue(item, field, line, candidates));
-      return statedValue(field, section, line, item, null, null, null, canonical.id, null, false, null, false);
+      return new Stated(section, line, item, null, null, null, null, false, null, false);
     }
   } else {
     unitImplied = true;
@@ -97,7 +117,7 @@ export function readItem(item: ItemNode, section: SectionId, line: number, ctx: 
       issues.push(otherUnitIssue(item, field, line, readUnit, likely, canonical));
     }
   }
-  return statedValue(field, section, line, item, value, parts, null, canonical.id, readUnit.id, unitImplied, unitDoubt, usable);
+  return new Stated(section, line, item, value, parts, null, readUnit.id, unitImplied, unitDoubt, usable);
 }
 
 function unknownWordIssue(item: ItemNode, field: FieldDef, line: number): ReadIssue {

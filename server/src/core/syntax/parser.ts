@@ -282,8 +282,6 @@ function token(text: string, start: number, end: number): Chunk {
  * than a string of its own, and cuts its text from it when asked (few numbers ever are).
  */
 class NumberNode implements NumberValue, Span {
-  readonly kind = 'number';
-
   constructor(
     private readonly source: string,
     readonly value: number,
@@ -291,6 +289,11 @@ class NumberNode implements NumberValue, Span {
     readonly end: number,
     readonly decimalComma: boolean,
   ) {}
+
+  /** On the class, not on each number. */
+  get kind(): 'number' {
+    return 'number';
+  }
 
   get text(): string {
     return this.source.slice(this.start, this.end);
