@@ -59,7 +59,8 @@ interface BlockResult {
 }
 
 interface BlockEntry {
-  readonly nodes: readonly LineNode[];
+  /** First line of the block (in the cache's `lines`). */
+  readonly start: number;
   readonly index: number;
   readonly endLine: number;
   readonly stateIn: CarryState;
@@ -69,12 +70,15 @@ interface BlockEntry {
 /** What one run leaves for the next; opaque to callers. */
 export interface TimelineCache {
   readonly settings: Settings;
+  /** The line nodes the blocks were read from (the tree of that run). */
+  readonly lines: readonly LineNode[];
   readonly blocks: readonly BlockEntry[];
   /** How many blocks the last run took from the cache (for tests and benchmarks). */
   readonly reused: number;
 }
 
 const EMPTY: HeldMap = new Map();
+const NONE: readonly never[] = Object.freeze([]);
 const START_STATE: CarryState = Object.freeze({ patient: EMPTY, place: EMPTY, oxygen: EMPTY, vent: EMPTY, gasUnit: null, lastTime: { day: null, minutes: null } });
 
 export function buildTimeline(tree: NoteTree, settings: Settings): Timeline {
@@ -83,9 +87,10 @@ export function buildTimeline(tree: NoteTree, settings: Settings): Timeline {
 
 export function buildTimelineIncremental(tree: NoteTree, settings: Settings, previous: TimelineCache | null): { timeline: Timeline; cache: TimelineCache } {
   const usable = previous && previous.settings === settings ? previous.blocks : [];
+  const previousLines = previous?.lines ?? [];
   const lines = tree.lines;
   // Block 0: the lines before the first `@` (possibly none); then one block per `@` line. Blocks
-  // are ranges of the line list: a block that is reused is never copied out of it.
+  // are ranges of the line list, which the cache keeps (nothing is copied out of it).
   const starts: number[] = [0];
   for (let i = 0; i < lines.length; i++) if (lines[i]!.kind === 'timepoint') starts.push(i);
   const entries: BlockEntry[] = [];
@@ -101,33 +106,30 @@ export function buildTimelineIncremental(tree: NoteTree, settings: Settings, pre
     const endLine = end - 1;
     const old = usable[b];
     let result: BlockResult;
-    let nodes: readonly LineNode[];
-    if (old && old.index === index && old.endLine === endLine && sameNodes(old.nodes, lines, start, end) && sameState(old.stateIn, state)) {
+    if (old && old.index === index && old.endLine === endLine && old.start === start && sameNodes(previousLines, lines, start, end) && sameState(old.stateIn, state)) {
       result = old.result;
-      nodes = old.nodes;
       reused++;
     } else {
-      nodes = lines.slice(start, end);
-      result = processBlock(nodes, index, endLine, state, settings, tree, old?.result.stateOut ?? null);
+      result = processBlock(lines, start, end, index, state, settings, tree, old?.result.stateOut ?? null);
     }
-    entries.push({ nodes, index, endLine, stateIn: state, result });
+    entries.push({ start, index, endLine, stateIn: state, result });
     if (result.timepoint) timepoints.push(result.timepoint);
     for (const s of result.header) header.push(s);
     for (const issue of result.issues) readIssues.push(issue);
     state = result.stateOut;
   }
-  return { timeline: { timepoints, readIssues, header }, cache: { settings, blocks: entries, reused } };
+  return { timeline: { timepoints, readIssues, header }, cache: { settings, lines, blocks: entries, reused } };
 }
 
 /**
- * Whether a block's lines are `lines[start, end)` again: the same nodes, or nodes of the same
- * line number and text (the parser is a pure function of both).
+ * Whether the lines `[start, end)` are what they were in the previous run: the same nodes, or
+ * nodes of the same line number and text (the parser is a pure function of both).
  */
-function sameNodes(a: readonly LineNode[], lines: readonly LineNode[], start: number, end: number): boolean {
-  if (a.length !== end - start) return false;
-  for (let i = 0; i < a.length; i++) {
-    const x = a[i]!;
-    const y = lines[start + i]!;
+function sameNodes(before: readonly LineNode[], lines: readonly LineNode[], start: number, end: number): boolean {
+  if (before.length < end) return false;
+  for (let i = start; i < end; i++) {
+    const x = before[i]!;
+    const y = lines[i]!;
     if (x !== y && (x.line !== y.line || x.text !== y.text)) return false;
   }
   return true;
@@ -152,10 +154,12 @@ function sameState(a: CarryState, b: CarryState): boolean {
   );
 }
 
-function processBlock(nodes: readonly LineNode[], index: number, endLine: number, stateIn: CarryState, settings: Settings, tree: NoteTree, previousOut: CarryState | null): BlockResult {
+/** Reads the block `lines[start, end)`. */
+function processBlock(lines: readonly LineNode[], start: number, end: number, index: number, stateIn: CarryState, settings: Settings, tree: NoteTree, previousOut: CarryState | null): BlockResult {
+  const endLine = end - 1;
   const issues: ReadIssue[] = [];
   const header: StatedValue[] = [];
-  const first = nodes[0];
+  const first = start < end ? lines[start] : undefined;
   const mutable: MutableState = { ...stateIn };
   const seenInHeader = new Map<SectionId, Map<string, StatedValue>>();
   const seenAtTimepoint = new Map<SectionId, Map<string, StatedValue>>();
@@ -165,7 +169,8 @@ function processBlock(nodes: readonly LineNode[], index: number, endLine: number
     if (time.minutes !== null || time.day !== null) mutable.lastTime = time;
     tp = { index, line: first.line, label: labelOf(first), startLine: first.line, time, stated: [] };
   }
-  for (const node of nodes) {
+  for (let i = start; i < end; i++) {
+    const node = lines[i]!;
     if (node.kind !== 'section') continue;
     const kind = sectionById(node.section).kind;
     if (kind === 'prose') continue;
@@ -180,8 +185,11 @@ function processBlock(nodes: readonly LineNode[], index: number, endLine: number
     apply(node.section, stated, tp ? tp.index : -1, tp ? tp.label : 'header', mutable);
   }
   const stateOut = reuseEqual(mutable, previousOut);
-  if (!tp) return { timepoint: null, header, issues, stateOut };
-  return { timepoint: freeze(tp, endLine, stateOut, settings), header, issues, stateOut };
+  // Most blocks have no header values and no issues: they keep shared empty lists.
+  const keptHeader = header.length === 0 ? NONE : header;
+  const keptIssues = issues.length === 0 ? NONE : issues;
+  if (!tp) return { timepoint: null, header: keptHeader, issues: keptIssues, stateOut };
+  return { timepoint: freeze(tp, endLine, stateOut, settings), header: keptHeader, issues: keptIssues, stateOut };
 }
 
 function firstContentLine(tree: NoteTree): number {
