@@ -78,6 +78,17 @@ describe('section lines', () => {
     expect(node.items.map((i) => summary(text, i))).toEqual(['hr | 118 | <none>', 'rr | 26 | <none>', 'spo2 | 89 | %', 'temp | 38.4 | C']);
   });
 
+  it('gives a section word at the start of a line one token shared by such lines, with its span', () => {
+    const a = section('vitals hr 80');
+    const b = section('vitals rr 16');
+    expect(a.sectionToken).toBe(b.sectionToken);
+    expect([a.sectionToken.text, a.sectionToken.span.start, a.sectionToken.span.end]).toEqual(['vitals', 0, 6]);
+    const indented = section('  vitals hr 80');
+    expect([indented.sectionToken.text, indented.sectionToken.span.start, indented.sectionToken.span.end]).toEqual(['vitals', 2, 8]);
+    const upper = section('VITALS hr 80');
+    expect([upper.sectionToken.text, upper.section]).toEqual(['VITALS', 'vitals']);
+  });
+
   it('reads section aliases', () => {
     expect(section('obs hr 80').section).toBe('vitals');
     expect(section('ventilator peep 5').section).toBe('vent');

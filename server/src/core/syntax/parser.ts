@@ -86,6 +86,23 @@ function intern(text: string): string {
   return text.length <= 12 && c >= 0x61 && c <= 0x7a ? (VOCABULARY.get(text) ?? text) : text;
 }
 
+/** Tokens of the format's words written at the start of a line (`vitals`), one per word. */
+const LINE_START_TOKENS = new Map<string, Chunk>();
+
+/**
+ * The token of a chunk, shared when it is a word of the format at the start of its line: tokens
+ * never change, and a big note has thousands of lines that start with the same few words.
+ */
+function lineStartToken(chunk: Chunk): Chunk {
+  if (chunk.start !== 0 || VOCABULARY.get(chunk.text) !== chunk.text) return chunk;
+  let token = LINE_START_TOKENS.get(chunk.text);
+  if (!token) {
+    token = Object.freeze(new Chunk(chunk.text, 0, chunk.end, false));
+    LINE_START_TOKENS.set(chunk.text, token);
+  }
+  return token;
+}
+
 /**
  * Shared empty lists: most lines have no issues, and a note line's node must stay small (a big
  * note has tens of thousands of them). Frozen, so sharing is safe.
@@ -114,8 +131,9 @@ function parseLineUnsafe(text: string, line: number): LineNode {
   if (first.text.charCodeAt(0) === 0x40 /* @ */) return parseTimepoint(body, chunks, line, text, comment);
 
   const section = sectionByName(first.text);
-  // A chunk is a token (its text and span); it is kept as one rather than copied.
-  const sectionToken: Token = first;
+  // A chunk is a token (its text and span); it is kept as one rather than copied, and a section
+  // word at the start of its line is one token shared by every such line.
+  const sectionToken: Token = section ? lineStartToken(first) : first;
   if (!section) {
     const restStart = chunks[1]?.span.start;
     const restText = restStart === undefined ? '' : body.slice(restStart).trimEnd();
