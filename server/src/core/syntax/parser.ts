@@ -86,6 +86,9 @@ function intern(text: string): string {
   return text.length <= 12 && c >= 0x61 && c <= 0x7a ? (VOCABULARY.get(text) ?? text) : text;
 }
 
+/** The `@` of a timepoint line that starts with it (most do): one token for all. */
+const MARKER_AT_LINE_START: Chunk = Object.freeze(new Chunk('@', 0, 1, false));
+
 /** Tokens of the format's words written at the start of a line (`vitals`), one per word. */
 const LINE_START_TOKENS = new Map<string, Chunk>();
 
@@ -179,7 +182,7 @@ function unknownSectionIssue(first: Chunk): SyntaxIssue {
 function parseTimepoint(body: string, chunks: Chunk[], line: number, text: string, comment: Token | null): LineNode {
   const issues: SyntaxIssue[] = [];
   const first = chunks[0]!;
-  const marker: Token = token('@', first.start, first.start + 1);
+  const marker: Token = first.start === 0 ? MARKER_AT_LINE_START : token('@', first.start, first.start + 1);
   // `@07:40` is read like `@ 07:40`.
   const rest: Chunk[] = [];
   if (first.text.length > 1) rest.push(new Chunk(first.text.slice(1), first.start + 1, first.end, false));
