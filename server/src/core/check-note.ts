@@ -9,7 +9,8 @@ import { internalError } from './checks/internal';
 import { CHECKS, docAnchor } from './checks/registry';
 import { withDefaults, type Settings } from './settings';
 import type { NoteTree } from './syntax/tree';
-import { comparePositions, type Finding } from './types';
+import { comparePositions, type Finding, type Fix } from './types';
+import { ownString } from './util/strings';
 
 export interface NoteResult {
   readonly analysis: NoteAnalysis;
@@ -104,13 +105,17 @@ function sharedValue<T>(store: Map<string, unknown>, key: string, compute: () =>
   return value;
 }
 
+/** Findings without fixes share one empty list. */
+const NO_FIXES: readonly Fix[] = Object.freeze([]);
+
 function toFinding(check: CheckDef, r: Report): Finding {
   return {
     code: check.code,
     severity: r.severity ?? check.severity,
-    message: r.message,
+    // Kept as long as the note: in one piece, not the tree of parts it was built from.
+    message: ownString(r.message),
     range: r.range,
-    fixes: r.fixes ?? [],
+    fixes: r.fixes ?? NO_FIXES,
     docAnchor: docAnchor(check),
     ...(r.related ? { related: r.related } : {}),
   };

@@ -14,6 +14,7 @@ import { deriverFor } from './analysis/analyse';
 import { withDefaults, type Settings } from './settings';
 import { firstEol, parseLine, splitLines } from './syntax/parser';
 import type { LineNode, NoteTree } from './syntax/tree';
+import { ownString } from './util/strings';
 
 export interface SessionStats {
   /** Lines parsed anew by the last update. */
@@ -165,7 +166,7 @@ export class NoteSession {
     const delta = text.length - old.length;
     const midStart = oldStarts[head]!;
     const midEnd = tail > 0 ? oldStarts[m - tail]! + delta : text.length;
-    const split = splitLines(detached(text.slice(midStart, midEnd)));
+    const split = splitLines(ownString(text.slice(midStart, midEnd)));
     // With lines after the stretch, the stretch ends with a terminator: its empty last piece is not a line.
     const middle = tail > 0 ? split.lines.slice(0, -1) : split.lines;
     const n = head + middle.length + tail;
@@ -191,15 +192,6 @@ export class NoteSession {
   }
 }
 
-/**
- * The same text in a string of its own. A substring in V8 can be a view into the string it was
- * cut from; the changed lines are kept in the tree for as long as they stay unchanged, and as
- * views they would keep every version of the whole note alive (hundreds of KB per edit). Slicing
- * a concatenation copies it first, so the result only holds the changed stretch.
- */
-function detached(stretch: string): string {
-  return ` ${stretch}`.slice(1);
-}
 
 /** Line ends in `text[from, to)`, counted up to just over `limit`. */
 function linesBetween(text: string, from: number, to: number, limit: number): number {
