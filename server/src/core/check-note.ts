@@ -9,8 +9,10 @@ import { internalError } from './checks/internal';
 import { CHECKS, docAnchor } from './checks/registry';
 import { withDefaults, type Settings } from './settings';
 import type { NoteTree } from './syntax/tree';
-import { comparePositions, type Finding, type Fix } from './types';
+import { comparePositions, type Finding } from './types';
 import { ownString } from './util/strings';
+import { keptIn, NONE } from './util/lists';
+import { derivationOf } from './derive/registry';
 
 export interface NoteResult {
   readonly analysis: NoteAnalysis;
@@ -44,7 +46,7 @@ export function runChecks(analysis: NoteAnalysis, settings: Settings, checks: re
     message: `Check ${check.code} (${check.alias}) failed on this note: ${error instanceof Error ? error.message : String(error)}. Other checks still ran.`,
   });
   const noteShared = new Map<string, unknown>();
-  const sharedInNote = <T>(key: string, compute: () => T): T => sharedValue(noteShared, key, compute);
+  const sharedInNote = <T>(key: string, compute: () => T): T => keptIn(noteShared, key, compute) as T;
   for (const check of enabled) {
     const run = check.run;
     if (!run) continue;
@@ -66,9 +68,9 @@ export function runChecks(analysis: NoteAnalysis, settings: Settings, checks: re
     analysis,
     settings,
     timepoint: analysis.timeline.timepoints[0]!,
-    derivation: { timepoint: 0, derived: [], missing: [], notApplicable: [], interpretations: [] },
+    derivation: derivationOf(0),
     report: (r: Report) => own.push(toFinding(current!, r)),
-    shared: <T>(key: string, compute: () => T): T => sharedValue((timepointShared ??= new Map<string, unknown>()), key, compute),
+    shared: <T>(key: string, compute: () => T): T => keptIn((timepointShared ??= new Map<string, unknown>()), key, compute) as T,
   };
   const timepoints = analysis.timeline.timepoints;
   for (let i = 0; i < timepoints.length; i++) {
@@ -98,16 +100,6 @@ export function runChecks(analysis: NoteAnalysis, settings: Settings, checks: re
   return { analysis, findings, settings };
 }
 
-function sharedValue<T>(store: Map<string, unknown>, key: string, compute: () => T): T {
-  if (store.has(key)) return store.get(key) as T;
-  const value = compute();
-  store.set(key, value);
-  return value;
-}
-
-/** Findings without fixes share one empty list. */
-const NO_FIXES: readonly Fix[] = Object.freeze([]);
-
 function toFinding(check: CheckDef, r: Report): Finding {
   return {
     code: check.code,
@@ -115,7 +107,7 @@ function toFinding(check: CheckDef, r: Report): Finding {
     // Kept as long as the note: in one piece, not the tree of parts it was built from.
     message: ownString(r.message),
     range: r.range,
-    fixes: r.fixes ?? NO_FIXES,
+    fixes: r.fixes ?? NONE,
     docAnchor: docAnchor(check),
     ...(r.related ? { related: r.related } : {}),
   };

@@ -192,7 +192,6 @@ export class NoteSession {
   }
 }
 
-
 /** Line ends in `text[from, to)`, counted up to just over `limit`. */
 function linesBetween(text: string, from: number, to: number, limit: number): number {
   let count = 0;

@@ -4,7 +4,7 @@
 import type { Settings } from '../settings';
 import { parseNote } from '../syntax/parser';
 import type { NoteTree } from '../syntax/tree';
-import { deriveTimepoint } from '../derive/registry';
+import { derivationOf, deriveTimepoint } from '../derive/registry';
 import type { TimepointDerivation } from '../derive/model';
 import { buildTimeline, type Timeline } from './timeline';
 
@@ -29,7 +29,7 @@ export function analyseTree(tree: NoteTree, settings: Settings): NoteAnalysis {
 export function deriverFor(timeline: Timeline, settings: Settings): (index: number) => TimepointDerivation {
   return (index) => {
     const tp = timeline.timepoints[index];
-    return tp ? deriveTimepoint(tp, settings) : { timepoint: index, derived: [], missing: [], notApplicable: [], interpretations: [] };
+    return tp ? deriveTimepoint(tp, settings) : derivationOf(index);
   };
 }
 

@@ -3,7 +3,7 @@
  * stands in the way (unknown key, unknown or disallowed unit, a number that only makes
  * sense in another unit).
  */
-import { canonicalWord, FIELDS, fieldFor, keysInSection, type FieldDef } from '../fields/registry';
+import { canonicalWord, FIELDS, keysInSection, type FieldDef } from '../fields/registry';
 import type { SectionId } from '../fields/sections';
 import { convert, unitById, unitsForSpelling, type UnitDef } from '../fields/units';
 import type { ItemNode, LineFix } from '../syntax/tree';

@@ -16,7 +16,7 @@
  * held values when they are equal, so an edit to one timepoint recomputes only that timepoint
  * and those that depend on what it carries.
  */
-import { fieldById, FIELDS } from '../fields/registry';
+import { FIELDS } from '../fields/registry';
 import { SECTIONS, sectionById, type SectionId } from '../fields/sections';
 import type { Settings } from '../settings';
 import type { LineNode, NoteTree, SectionLine, TimepointLine } from '../syntax/tree';
@@ -24,7 +24,7 @@ import { barometricFromAltitude } from './ambient';
 import type { InputValue, Origin, StatedValue, Timepoint, TimepointTime } from './model';
 import type { ReadIssue } from './read-issues';
 import { readItem } from './read-value';
-import { pushAll } from '../util/lists';
+import { NONE, pushAll } from '../util/lists';
 
 interface Held {
   readonly stated: StatedValue;
@@ -78,7 +78,6 @@ export interface TimelineCache {
 }
 
 const EMPTY: HeldMap = new Map();
-const NONE: readonly never[] = Object.freeze([]);
 const START_STATE: CarryState = Object.freeze({ patient: EMPTY, place: EMPTY, oxygen: EMPTY, vent: EMPTY, gasUnit: null, lastTime: { day: null, minutes: null } });
 
 export function buildTimeline(tree: NoteTree, settings: Settings): Timeline {
@@ -352,18 +351,24 @@ class ValuesInForce implements ReadonlyMap<string, InputValue> {
   ) {}
 
   get(id: string): InputValue | undefined {
-    const stated = this.stated;
-    for (let i = stated.length - 1; i >= 0; i--) {
-      const s = stated[i]!;
-      if (s.fieldId === id && isHereOnly(s)) return { stated: s, origin: { kind: 'here', line: s.line, span: s.item.span } };
-    }
+    const s = this.measuredHere(id);
+    if (s) return { stated: s, origin: { kind: 'here', line: s.line, span: s.item.span } };
     const held = this.heldFor(id);
     return held ? { stated: held.stated, origin: originOf(held, this.index) } : undefined;
   }
 
   has(id: string): boolean {
-    for (const s of this.stated) if (s.fieldId === id && isHereOnly(s)) return true;
-    return this.heldFor(id) !== undefined;
+    return this.measuredHere(id) !== undefined || this.heldFor(id) !== undefined;
+  }
+
+  /** The measurement or reading of a field stated here (the last of them wins). */
+  private measuredHere(id: string): StatedValue | undefined {
+    const stated = this.stated;
+    for (let i = stated.length - 1; i >= 0; i--) {
+      const s = stated[i]!;
+      if (s.fieldId === id && isHereOnly(s)) return s;
+    }
+    return undefined;
   }
 
   /** A field is held in one map only (an oxygen line empties the ventilator's and back). */

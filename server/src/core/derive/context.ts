@@ -10,6 +10,7 @@ import type { Settings } from '../settings';
 import { formatNumber } from '../util/format';
 import { describeOrigin } from '../present';
 import type { DerivedCategory, DerivedValue, InputOrigin, MissingValue, NotApplicable, Term } from './model';
+import { keptIn, NONE } from '../util/lists';
 
 export type { Term } from './model';
 
@@ -96,22 +97,12 @@ export class DeriveContext {
 
   /** A value computed once per timepoint and shared by several definitions (e.g. the acid–base classification). */
   memo<T>(key: string, compute: () => T): T {
-    const memos = (this.memos ??= new Map<string, unknown>());
-    if (memos.has(key)) return memos.get(key) as T;
-    const value = compute();
-    memos.set(key, value);
-    return value;
+    return keptIn((this.memos ??= new Map<string, unknown>()), key, compute) as T;
   }
 
   /** The value in force for a field, read once per context. */
   input(id: string): InputValue | null {
-    const inputs = (this.inputs ??= new Map<string, InputValue | null>());
-    let input = inputs.get(id);
-    if (input === undefined) {
-      input = this.timepoint.values.get(id) ?? null;
-      inputs.set(id, input);
-    }
-    return input;
+    return keptIn((this.inputs ??= new Map<string, InputValue | null>()), id, () => this.timepoint.values.get(id) ?? null);
   }
 
   /** A usable stated value in force, as a formula input. */
@@ -274,8 +265,6 @@ function evaluateDef(def: DerivedDefinition, c: DeriveContext): DerivedValue | M
 
 type ValueOutcome = Extract<Outcome, { kind: 'value' }>;
 
-const NO_NOTES: readonly string[] = Object.freeze([]);
-
 /**
  * A computed derived value. The formula with its numbers put in is built on first read: most
  * values are never hovered, and a big note has tens of thousands of them.
@@ -313,7 +302,7 @@ class ComputedValue implements DerivedValue {
     this.inputs = outcome.terms;
     this.source = def.source;
     this.estimate = outcome.estimate ?? false;
-    this.notes = outcome.notes ?? NO_NOTES;
+    this.notes = outcome.notes ?? NONE;
     this.usesCarried = carried;
     this.line = line;
     this.template = outcome.formula ?? def.formula;

@@ -13,6 +13,7 @@ import { interpret } from './interpret';
 import * as mech from './mechanics';
 import type { DerivedValue, Interpretation, MissingValue, NotApplicable, TimepointDerivation } from './model';
 import * as transport from './oxygen-transport';
+import { NONE } from '../util/lists';
 
 export const DERIVED: readonly DerivedDefinition[] = validateDerived([
   atmosphere.barometric,
@@ -72,6 +73,7 @@ const ANCHORED: ReadonlyMap<string, number> = (() => {
   });
   return out;
 })();
+
 export function derivedDef(id: string): DerivedDefinition | undefined {
   return byId.get(id);
 }
@@ -156,6 +158,11 @@ class TimepointValues implements TimepointDerivation {
     const r = this.ctx.evaluateSlot(slot);
     return r && 'value' in r ? r : null;
   }
+}
+
+/** A derivation of the given values only (none by default): nothing missing, no readings. */
+export function derivationOf(timepoint: number, derived: readonly DerivedValue[] = NONE): TimepointDerivation {
+  return { timepoint, derived, missing: NONE, notApplicable: NONE, interpretations: NONE };
 }
 
 export function deriveTimepoint(tp: Timepoint, settings: Settings): TimepointDerivation {

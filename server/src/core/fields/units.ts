@@ -102,14 +102,14 @@ export function unitById(id: string): UnitDef | undefined {
   return byId.get(id);
 }
 
-/**
- * Every unit a written token may mean. An exact-case match wins over a case-folded one
- * (so `mL` and `ML` both read as millilitres, and `%` means whichever percent the field uses).
- */
 /** Units found for a spelling, kept (spellings that name a unit are few; others are not kept). */
 const spellingCache = new Map<string, readonly UnitDef[]>();
 const SPELLING_CACHE_LIMIT = 2000;
 
+/**
+ * Every unit a written token may mean. An exact-case match wins over a case-folded one
+ * (so `mL` and `ML` both read as millilitres, and `%` means whichever percent the field uses).
+ */
 export function unitsForSpelling(text: string): readonly UnitDef[] {
   const known = spellingCache.get(text);
   if (known) return known;

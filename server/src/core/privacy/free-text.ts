@@ -8,6 +8,7 @@
 import type { ItemNode, LineNode } from '../syntax/tree';
 import { scan } from './scan';
 import type { PrivacyMatch } from './types';
+import { NONE } from '../util/lists';
 
 export interface FreeText {
   /** The text to scan; positions in it are positions in the line plus `start`. */
@@ -104,8 +105,6 @@ export function scanLine(node: LineNode): readonly PrivacyMatch[] {
       (out ??= []).push({ ...m, span: { start: m.span.start + start, end: m.span.end + start } });
     }
   });
-  return out ?? NO_MATCHES;
+  return out ?? NONE;
 }
 
-/** Most lines hold no identifier: they share one empty list. */
-const NO_MATCHES: readonly PrivacyMatch[] = Object.freeze([]);

@@ -9,6 +9,7 @@ import { findNames } from './names';
 import { findNumberIdentifiers } from './numbers';
 import { findPostalCodes } from './postal-codes';
 import { KIND_PRIORITY, type PrivacyMatch } from './types';
+import { NONE } from '../util/lists';
 
 /** Longer lines are scanned only up to this many characters (a note line is far shorter). */
 export const MAX_SCAN_LENGTH = 10_000;
@@ -33,9 +34,6 @@ export function scan(text: string): readonly PrivacyMatch[] {
   }
   return kept;
 }
-
-/** What most texts hold: one shared empty list. */
-const NONE: readonly PrivacyMatch[] = Object.freeze([]);
 
 /** Full month names that count in lower case (see dates.ts). */
 const LOWER_CASE_MONTHS = ['january', 'february', 'april', 'june', 'july', 'september', 'october', 'november', 'december'];

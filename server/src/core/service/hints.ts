@@ -17,7 +17,7 @@ import { derivedBody, termText } from './derived-hover';
 import { contentEnd, lineAt } from './locate';
 import { cautionLine, escapeMarkdown, paragraphs } from './markdown';
 import { describeInputOrigin } from '../derive/context';
-import { derivedAt } from '../derive/registry';
+import { derivationOf, derivedAt } from '../derive/registry';
 import { HINT_CATEGORIES, type HintCategory, type InlayHintInfo, type LineSpan } from './types';
 
 export interface HintOptions {
@@ -122,7 +122,7 @@ export function inlayHints(result: NoteResult, lines: LineSpan, options: HintOpt
       const barometric = derivedAt(tp, result.settings, 'barometric');
       if (!barometric) continue;
       all = [barometric];
-      derivation = { timepoint: tp.index, derived: all, missing: [], notApplicable: [], interpretations: [] };
+      derivation = derivationOf(tp.index, all);
     } else {
       derivation = result.analysis.derivation(tp.index);
       all = derivation.derived;

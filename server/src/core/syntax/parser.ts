@@ -22,6 +22,7 @@ import type {
   ValueNode,
   WordValue,
 } from './tree';
+import { NONE } from '../util/lists';
 
 export interface LineSlice {
   readonly text: string;
@@ -87,7 +88,7 @@ function intern(text: string): string {
 }
 
 /** The `@` of a timepoint line that starts with it (most do): one token for all. */
-const MARKER_AT_LINE_START: Chunk = Object.freeze(new Chunk('@', 0, 1, false));
+const MARKER_AT_LINE_START: Chunk = Object.freeze(token('@', 0, 1));
 
 /** Tokens of the format's words written at the start of a line (`vitals`), one per word. */
 const LINE_START_TOKENS = new Map<string, Chunk>();
@@ -98,20 +99,14 @@ const LINE_START_TOKENS = new Map<string, Chunk>();
  */
 function lineStartToken(chunk: Chunk): Chunk {
   if (chunk.start !== 0 || VOCABULARY.get(chunk.text) !== chunk.text) return chunk;
-  let token = LINE_START_TOKENS.get(chunk.text);
-  if (!token) {
-    token = Object.freeze(new Chunk(chunk.text, 0, chunk.end, false));
-    LINE_START_TOKENS.set(chunk.text, token);
+  let shared = LINE_START_TOKENS.get(chunk.text);
+  if (!shared) {
+    shared = Object.freeze(token(chunk.text, 0, chunk.end));
+    LINE_START_TOKENS.set(chunk.text, shared);
   }
-  return token;
+  return shared;
 }
 
-/**
- * Shared empty lists: most lines have no issues, and a note line's node must stay small (a big
- * note has tens of thousands of them). Frozen, so sharing is safe.
- */
-const NO_ISSUES: readonly SyntaxIssue[] = Object.freeze([]);
-const NO_ITEMS: readonly ItemNode[] = Object.freeze([]);
 
 export function parseLine(text: string, line: number): LineNode {
   try {
@@ -129,7 +124,7 @@ function parseLineUnsafe(text: string, line: number): LineNode {
   const body = hash >= 0 ? text.slice(0, bodyEnd) : text;
   const chunks = chunkLine(body, 0, intern);
   const first = chunks[0];
-  if (!first) return { kind: 'blank', line, text, comment, issues: NO_ISSUES };
+  if (!first) return { kind: 'blank', line, text, comment, issues: NONE };
 
   if (first.text.charCodeAt(0) === 0x40 /* @ */) return parseTimepoint(body, chunks, line, text, comment);
 
@@ -147,11 +142,11 @@ function parseLineUnsafe(text: string, line: number): LineNode {
     const proseStart = chunks[1]?.span.start;
     const proseEnd = chunks[chunks.length - 1]?.span.end ?? first.span.end;
     const prose: Token | null = proseStart === undefined ? null : token(body.slice(proseStart, proseEnd), proseStart, proseEnd);
-    return { kind: 'section', line, text, comment, section: section.id, sectionToken, items: NO_ITEMS, prose, issues: NO_ISSUES };
+    return { kind: 'section', line, text, comment, section: section.id, sectionToken, items: NONE, prose, issues: NONE };
   }
   const issues: SyntaxIssue[] = [];
   const items = parseItems(section.id, chunks, 1, issues, text);
-  return { kind: 'section', line, text, comment, section: section.id, sectionToken, items, prose: null, issues: issues.length === 0 ? NO_ISSUES : issues };
+  return { kind: 'section', line, text, comment, section: section.id, sectionToken, items, prose: null, issues: issues.length === 0 ? NONE : issues };
 }
 
 function unknownSectionIssue(first: Chunk): SyntaxIssue {
@@ -239,7 +234,7 @@ function parseTimepoint(body: string, chunks: Chunk[], line: number, text: strin
   const l0 = labelChunks[0];
   const lN = labelChunks[labelChunks.length - 1];
   const label: Token | null = l0 && lN ? token(body.slice(l0.start, lN.end), l0.start, lN.end) : null;
-  return { kind: 'timepoint', line, text, comment, marker, time, label, issues: issues.length === 0 ? NO_ISSUES : issues };
+  return { kind: 'timepoint', line, text, comment, marker, time, label, issues: issues.length === 0 ? NONE : issues };
 }
 
 function looksLikeClock(text: string): boolean {
@@ -385,7 +380,7 @@ class Item implements ItemNode, Span {
   ) {}
 
   get key(): Token | null {
-    return this.keyText === null ? null : new Chunk(this.keyText, this.start, this.start + this.keyText.length, false);
+    return this.keyText === null ? null : token(this.keyText, this.start, this.start + this.keyText.length);
   }
 
   get span(): Span {
@@ -538,5 +533,5 @@ function parseItems(section: SectionId, chunks: readonly Chunk[], start: number,
   }
   // Kept as long as the line: a copy of its exact length (an array grown by push keeps room to
   // spare, and a big note has thousands of item lists).
-  return items.length === 0 ? NO_ITEMS : items.slice();
+  return items.length === 0 ? NONE : items.slice();
 }

@@ -6,3 +6,17 @@
 export function pushAll<T>(target: T[], items: readonly T[]): void {
   for (const item of items) target.push(item);
 }
+
+/**
+ * The empty list, shared: most lines have no issues, most findings no fixes, most texts no
+ * identifier, and a big note keeps tens of thousands of such lists. Frozen, so sharing is safe.
+ */
+export const NONE: readonly never[] = Object.freeze([]);
+
+/** The value kept in `store` under `key`, computed and kept on first use. */
+export function keptIn<K, T>(store: Map<K, T>, key: K, compute: () => T): T {
+  if (store.has(key)) return store.get(key) as T;
+  const value = compute();
+  store.set(key, value);
+  return value;
+}
