@@ -152,3 +152,28 @@ describe('values in force (read from the held settings and the values stated her
     );
   });
 });
+
+describe('values stated twice at one timepoint (PN206)', () => {
+  const pn206 = (text: string) => checkNote(text).findings.filter((f) => f.code === 'PN206');
+
+  it('names every repeat after the first, each pointing at the first, section by section', () => {
+    const text = '@ 08:00\nvitals hr 80, rr 16\nabg po2 71\nvitals hr 82\nabg po2 64, pco2 40\nvent fio2 0.4\nabg fio2 0.4\nvitals hr 84';
+    const found = pn206(text);
+    // hr twice more (lines 3 and 7), po2 once more (line 4); fio2 in vent and in abg are two sections.
+    expect(found.map((f) => f.range.start.line)).toEqual([3, 4, 7]);
+    for (const f of found) expect(f.related?.[0]?.range.start.line).toBe(f.message.startsWith('hr') ? 1 : 2);
+  });
+
+  it('tells the header from the timepoint, and one timepoint from the next', () => {
+    expect(pn206('patient age 61 y\n@ 08:00\npatient age 62 y\n@ 09:00\npatient age 63 y')).toEqual([]);
+    expect(pn206('patient age 61 y, age 62 y').map((f) => f.range.start.line)).toEqual([0]);
+  });
+
+  it('stays linear on a block that repeats one field many thousand times', () => {
+    const repeats = 20_000;
+    const text = `@ 08:00\nvitals ${Array.from({ length: repeats }, (_, i) => `hr ${60 + (i % 40)}`).join(', ')}`;
+    const found = pn206(text);
+    expect(found).toHaveLength(repeats - 1);
+    expect(found.every((f) => f.related?.[0]?.range.start.character === 7)).toBe(true);
+  });
+});

@@ -11,7 +11,8 @@ import { withDefaults, type Settings } from './settings';
 import type { NoteTree } from './syntax/tree';
 import { comparePositions, type Finding } from './types';
 import { ownString } from './util/strings';
-import { keptIn, NONE } from './util/lists';
+import { NONE } from './util/lists';
+import { keptFor, SmallStore, type Kept } from './util/small-store';
 import { derivationOf } from './derive/registry';
 
 export interface NoteResult {
@@ -45,12 +46,16 @@ export function runChecks(analysis: NoteAnalysis, settings: Settings, checks: re
     range: { start: { line: 0, character: 0 }, end: { line: 0, character: 0 } },
     message: `Check ${check.code} (${check.alias}) failed on this note: ${error instanceof Error ? error.message : String(error)}. Other checks still ran.`,
   });
-  const noteShared = new Map<string, unknown>();
-  const sharedInNote = <T>(key: string, compute: () => T): T => keptIn(noteShared, key, compute) as T;
+  const noteShared = new SmallStore<Kept<unknown, CheckContext>, unknown>();
   for (const check of enabled) {
     const run = check.run;
     if (!run) continue;
-    const ctx: CheckContext = { analysis, settings, report: (r: Report) => findings.push(toFinding(check, r)), shared: sharedInNote };
+    const ctx: CheckContext = {
+      analysis,
+      settings,
+      report: (r: Report) => findings.push(toFinding(check, r)),
+      shared<T>(value: Kept<T, CheckContext>): T { return keptFor(noteShared, value, this); },
+    };
     try {
       run(ctx);
     } catch (error) {
@@ -62,15 +67,15 @@ export function runChecks(analysis: NoteAnalysis, settings: Settings, checks: re
   // timepoint to timepoint (a big note has thousands of timepoints and dozens of checks).
   let current: CheckDef | null = null;
   let own: Finding[] = [];
-  // Values shared by the checks of one timepoint (a fresh store per timepoint, made when first used).
-  let timepointShared: Map<string, unknown> | null = null;
+  // Values shared by the checks of one timepoint: one store, emptied for each timepoint.
+  const timepointShared = new SmallStore<Kept<unknown, TimepointContext>, unknown>();
   const ctx: { -readonly [K in keyof TimepointContext]: TimepointContext[K] } = {
     analysis,
     settings,
     timepoint: analysis.timeline.timepoints[0]!,
     derivation: derivationOf(0),
     report: (r: Report) => own.push(toFinding(current!, r)),
-    shared: <T>(key: string, compute: () => T): T => keptIn((timepointShared ??= new Map<string, unknown>()), key, compute) as T,
+    shared<T>(value: Kept<T, TimepointContext>): T { return keptFor(timepointShared, value, ctx); },
   };
   const timepoints = analysis.timeline.timepoints;
   for (let i = 0; i < timepoints.length; i++) {
@@ -82,7 +87,7 @@ export function runChecks(analysis: NoteAnalysis, settings: Settings, checks: re
     }
     ctx.timepoint = timepoint;
     ctx.derivation = analysis.derivation(i);
-    timepointShared = null;
+    timepointShared.clear();
     own = [];
     for (const check of perTimepoint) {
       current = check;

@@ -14,12 +14,27 @@ export interface BoundsContext {
 }
 
 export function softBounds(field: FieldDef, ctx: BoundsContext): Bounds | undefined {
+  return softBoundsAt(field, ctx.barometricMmhg);
+}
+
+/** `softBounds` with the barometric pressure given alone (no context object per value). */
+export function softBoundsAt(field: FieldDef, barometricMmhg: number | null): Bounds | undefined {
   const soft = field.soft;
   if (!soft) return undefined;
-  if (ctx.barometricMmhg !== null && ctx.barometricMmhg < LOW_PRESSURE_WAIVER_MMHG && WAIVED_AT_ALTITUDE.has(field.id)) {
-    return soft.max === undefined ? {} : { max: soft.max };
+  if (barometricMmhg !== null && barometricMmhg < LOW_PRESSURE_WAIVER_MMHG && WAIVED_AT_ALTITUDE.has(field.id)) {
+    return soft.max === undefined ? NO_BOUNDS : (WAIVED.get(field.id) ?? keepWaived(field.id, soft.max));
   }
   return soft;
+}
+
+const NO_BOUNDS: Bounds = Object.freeze({});
+/** The waived bounds of each field, built once. */
+const WAIVED = new Map<string, Bounds>();
+
+function keepWaived(id: string, max: number): Bounds {
+  const bounds = Object.freeze({ max });
+  WAIVED.set(id, bounds);
+  return bounds;
 }
 
 export function within(value: number, bounds: Bounds | undefined): boolean {

@@ -23,7 +23,7 @@ import type { LineNode, NoteTree, SectionLine, TimepointLine } from '../syntax/t
 import { barometricFromAltitude } from './ambient';
 import type { InputValue, Origin, StatedValue, Timepoint, TimepointTime } from './model';
 import type { ReadIssue } from './read-issues';
-import { readItem } from './read-value';
+import { readItem, type ReadContext } from './read-value';
 import { NONE, pushAll } from '../util/lists';
 
 interface Held {
@@ -160,14 +160,17 @@ function processBlock(lines: readonly LineNode[], start: number, end: number, in
   const header: StatedValue[] = [];
   const first = start < end ? lines[start] : undefined;
   const mutable: MutableState = { ...stateIn };
-  const seenInHeader = new Map<SectionId, Map<string, StatedValue>>();
-  const seenAtTimepoint = new Map<SectionId, Map<string, StatedValue>>();
+  // Header values and timepoint values are told apart (a header line and a timepoint line of one block).
+  let seenInHeader: FirstSeen | null = null;
+  let seenAtTimepoint: FirstSeen | null = null;
   let tp: { index: number; line: number | null; label: string; startLine: number; time: TimepointTime; stated: StatedValue[] } | null = null;
   if (first?.kind === 'timepoint') {
     const time = timeOf(first, stateIn.lastTime, index === 0);
     if (time.minutes !== null || time.day !== null) mutable.lastTime = time;
     tp = { index, line: first.line, label: labelOf(first), startLine: first.line, time, stated: [] };
   }
+  // How bare numbers are read: from the gas unit and the place in force, which few lines change.
+  let context: ReadContextIn | null = null;
   for (let i = start; i < end; i++) {
     const node = lines[i]!;
     if (node.kind !== 'section') continue;
@@ -177,9 +180,10 @@ function processBlock(lines: readonly LineNode[], start: number, end: number, in
     if (!inHeader && tp === null) {
       tp = { index: 0, line: null, label: 'start', startLine: firstContentLine(tree), time: { day: null, minutes: null }, stated: [] };
     }
-    const stated = readLine(node, mutable, settings, issues);
+    if (context === null || context.place !== mutable.place || context.gasUnit !== mutable.gasUnit) context = readContext(mutable, settings);
+    const stated = readLine(node, context.read, issues);
     const target = inHeader ? header : tp!.stated;
-    duplicates(node.section, stated, inHeader ? seenInHeader : seenAtTimepoint, issues);
+    if (stated.length > 0) duplicates(stated, inHeader ? (seenInHeader ??= new FirstSeen()) : (seenAtTimepoint ??= new FirstSeen()), issues);
     pushAll(target, stated);
     apply(node.section, stated, tp ? tp.index : -1, tp ? tp.label : 'header', mutable);
   }
@@ -219,10 +223,19 @@ function timeOf(node: TimepointLine, last: TimepointTime, isFirst: boolean): Tim
   return { day, minutes: (day - 1) * 1440 + t.minutes };
 }
 
-function readLine(node: SectionLine, state: CarryState, settings: Settings, issues: ReadIssue[]): StatedValue[] {
+/** How bare numbers are read, and the held values it was worked out from. */
+interface ReadContextIn {
+  readonly place: HeldMap;
+  readonly gasUnit: Held | null;
+  readonly read: ReadContext;
+}
+
+function readContext(state: CarryState, settings: Settings): ReadContextIn {
   const gasUnit = (state.gasUnit?.stated.word as 'mmHg' | 'kPa' | undefined) ?? settings.gasUnit;
-  const barometricMmhg = barometricInForce(state.place, settings);
-  const context = { gasUnit, barometricMmhg };
+  return { place: state.place, gasUnit: state.gasUnit, read: { gasUnit, barometricMmhg: barometricInForce(state.place, settings) } };
+}
+
+function readLine(node: SectionLine, context: ReadContext, issues: ReadIssue[]): StatedValue[] {
   const out: StatedValue[] = [];
   for (const item of node.items) {
     const stated = readItem(item, node.section, node.line, context, issues);
@@ -240,22 +253,33 @@ export function barometricInForce(place: ReadonlyMap<string, { stated: StatedVal
 }
 
 /**
- * The same field twice in one section at one timepoint: the later value wins, the first is named.
- * `seen` holds the first value of each section and field at this timepoint (linear in the items).
+ * The first value of each section and field among the values read so far in a block, searched
+ * in place: a block holds one value per section and field at most (65 pairs in the registry),
+ * so a search is short however many values a block repeats.
  */
-function duplicates(section: SectionId, stated: readonly StatedValue[], seen: Map<SectionId, Map<string, StatedValue>>, issues: ReadIssue[]): void {
-  if (stated.length === 0) return;
-  let inSection = seen.get(section);
-  if (!inSection) {
-    inSection = new Map<string, StatedValue>();
-    seen.set(section, inSection);
-  }
-  for (const s of stated) {
-    const earlier = inSection.get(s.fieldId);
-    if (!earlier) {
-      inSection.set(s.fieldId, s);
-      continue;
+class FirstSeen {
+  private readonly values: StatedValue[] = [];
+
+  /** The first value of the same section and field as `s`, or null (and `s` is now the first). */
+  earlier(s: StatedValue): StatedValue | null {
+    const fieldId = s.fieldId;
+    const values = this.values;
+    for (let i = 0; i < values.length; i++) {
+      const v = values[i]!;
+      if (v.fieldId === fieldId && v.section === s.section) return v;
     }
+    values.push(s);
+    return null;
+  }
+}
+
+/**
+ * The same field twice in one section at one timepoint: the later value wins, the first is named.
+ */
+function duplicates(stated: readonly StatedValue[], seen: FirstSeen, issues: ReadIssue[]): void {
+  for (const s of stated) {
+    const earlier = seen.earlier(s);
+    if (!earlier) continue;
     issues.push({
       check: 'duplicate-key',
       line: s.line,

@@ -10,6 +10,7 @@ import type { TimepointDerivation } from '../derive/model';
 import type { Settings } from '../settings';
 import type { LineNode } from '../syntax/tree';
 import type { Fix, Range, Severity } from '../types';
+import type { Kept } from '../util/small-store';
 
 export interface CheckDoc {
   /** What makes it fire, in a sentence or two. */
@@ -35,15 +36,17 @@ export interface CheckContext {
   report(finding: Report): void;
   /**
    * A value several checks need, computed by the first that asks and shared by the others: for
-   * the whole run in `run`, for the timepoint in `runTimepoint`.
+   * the whole run in `run`, for the timepoint in `runTimepoint`. Defined once, at module level.
    */
-  shared<T>(key: string, compute: () => T): T;
+  shared<T>(value: Kept<T, CheckContext>): T;
 }
 
 /** What a timepoint-scoped check sees: one timepoint and its derived values. */
 export interface TimepointContext extends CheckContext {
   readonly timepoint: Timepoint;
   readonly derivation: TimepointDerivation;
+  /** A value the checks of this timepoint share (see `CheckContext.shared`). */
+  shared<T>(value: Kept<T, TimepointContext>): T;
 }
 
 export type CheckTag = 'syntax' | 'units' | 'plausibility' | 'timeline' | 'physiology' | 'interpretation' | 'privacy' | 'internal';

@@ -83,7 +83,9 @@ export const systolicBelowDiastolic = defineCheck({
   runTimepoint(ctx) {
     {
       for (const s of ctx.timepoint.stated) {
-        const [sys, dia] = s.fieldId === 'bp' && s.parts ? s.parts : [];
+        if (s.fieldId !== 'bp' || !s.parts) continue;
+        const sys = s.parts[0];
+        const dia = s.parts[1];
         const value = s.item.value;
         if (sys === undefined || dia === undefined || sys >= dia || value?.kind !== 'pair') continue;
         const [a, b] = value.parts;

@@ -9,7 +9,9 @@ import { scanLine } from '../privacy/free-text';
 import { PLACEHOLDERS, type PrivacyKind, type PrivacyMatch } from '../privacy/types';
 import { toRange, type LineNode } from '../syntax/tree';
 import type { Fix } from '../types';
-import { defineCheck, headerLineCount, type CheckContext, type CheckDef, type CheckDoc } from './check';
+import { defineCheck, headerLineCount, type CheckContext, type CheckDef, type CheckDoc, type TimepointContext } from './check';
+import type { Kept } from '../util/small-store';
+import { NONE } from '../util/lists';
 
 const SOURCE = 'de-identification practice (common practice, no source); HIPAA Safe Harbor list of identifiers, 45 CFR 164.514(b)(2) (from memory)';
 
@@ -26,21 +28,30 @@ interface LineMatch {
   readonly match: PrivacyMatch;
 }
 
+/** The identifiers on lines `[start, end)`. */
+function scanLines(lines: readonly LineNode[], start: number, end: number): readonly LineMatch[] {
+  let found: LineMatch[] | null = null;
+  for (let i = start; i < end && i < lines.length; i++) {
+    const node = lines[i]!;
+    if (node.kind === 'blank' && !node.comment) continue;
+    for (const match of scanLine(node)) (found ??= []).push({ line: node.line, match });
+  }
+  return found ?? NONE;
+}
+
 /**
  * The seven checks share one scan of each group of lines (`ctx.shared`): the first check to ask
  * scans the header or the timepoint, and the others read.
  */
-function matchesOf(ctx: CheckContext, lines: readonly LineNode[], start: number, end: number): readonly LineMatch[] {
-  return ctx.shared('privacy-matches', () => {
-    const found: LineMatch[] = [];
-    for (let i = start; i < end && i < lines.length; i++) {
-      const node = lines[i]!;
-      if (node.kind === 'blank' && !node.comment) continue;
-      for (const match of scanLine(node)) found.push({ line: node.line, match });
-    }
-    return found;
-  });
-}
+const HEADER_MATCHES: Kept<readonly LineMatch[], CheckContext> = {
+  name: 'identifiers in the header',
+  compute: (ctx) => scanLines(ctx.analysis.tree.lines, 0, headerLineCount(ctx.analysis)),
+};
+
+const TIMEPOINT_MATCHES: Kept<readonly LineMatch[], TimepointContext> = {
+  name: 'identifiers in the timepoint',
+  compute: (ctx) => scanLines(ctx.analysis.tree.lines, ctx.timepoint.startLine, ctx.timepoint.endLine + 1),
+};
 
 /**
  * A timepoint's lines are checked in `runTimepoint` (so an editing session keeps the findings
@@ -60,11 +71,11 @@ function privacyCheck(code: string, alias: string, kind: PrivacyKind, title: str
       if (!ctx.settings.privacyChecks) return;
       // Timepoints cover every line from the first one's start to the end of the note: the
       // note-scoped part is the header before it (the timepoints are checked one by one below).
-      report(ctx, matchesOf(ctx, ctx.analysis.tree.lines, 0, headerLineCount(ctx.analysis)));
+      report(ctx, ctx.shared(HEADER_MATCHES));
     },
     runTimepoint(ctx) {
       if (!ctx.settings.privacyChecks) return;
-      report(ctx, matchesOf(ctx, ctx.analysis.tree.lines, ctx.timepoint.startLine, ctx.timepoint.endLine + 1));
+      report(ctx, ctx.shared(TIMEPOINT_MATCHES));
     },
   });
 }

@@ -3,7 +3,7 @@
  * bounds (field registry). Saturations above 100 % and FiO2 outside 0.21–1.0 have checks
  * of their own and are left to them.
  */
-import { softBounds, within } from '../analysis/bounds';
+import { softBoundsAt, within } from '../analysis/bounds';
 import type { StatedValue } from '../analysis/model';
 import { fieldById, type Bounds, type FieldDef } from '../fields/registry';
 import { displayUnit } from '../analysis/read-value';
@@ -25,7 +25,9 @@ function valueCheck(test: (ctx: CheckContext, stated: StatedValue, barometricMmh
       for (const stated of ctx.analysis.timeline.header) test(ctx, stated, null);
     },
     runTimepoint(ctx) {
-      for (const stated of ctx.timepoint.stated) test(ctx, stated, ctx.timepoint.barometricMmhg);
+      // Read once: a number read from an object for each call would be boxed for each call.
+      const barometricMmhg = ctx.timepoint.barometricMmhg;
+      for (const stated of ctx.timepoint.stated) test(ctx, stated, barometricMmhg);
     },
   };
 }
@@ -68,7 +70,7 @@ export const impossibleValue = defineCheck({
   },
   source: 'field registry bounds; each field names its source (mostly common practice, no source)',
   ...valueCheck((ctx, stated) => {
-    const field = fieldById(stated.fieldId);
+    const field = stated.item.field;
     if (!field?.hard || OWN_CHECKS.has(field.id) || stated.readUnit === null || stated.unitDoubt) return;
     if (SATURATIONS.has(field.id) && noneNegative(stated)) return;
     if (!outOfBounds(stated, field.hard)) return;
@@ -92,10 +94,10 @@ export const unusualValue = defineCheck({
   },
   source: 'field registry bounds; each field names its source (mostly common practice, no source)',
   ...valueCheck((ctx, stated, barometricMmhg) => {
-    const field = fieldById(stated.fieldId);
+    const field = stated.item.field;
     if (!field?.soft || OWN_CHECKS.has(field.id) || !stated.usable || stated.readUnit === null || stated.unitDoubt) return;
     if (field.hard && outOfBounds(stated, field.hard)) return;
-    const soft = softBounds(field, { barometricMmhg });
+    const soft = softBoundsAt(field, barometricMmhg);
     if (!outOfBounds(stated, soft)) return;
     ctx.report({
       range: toRange(stated.line, stated.item.value?.span ?? stated.item.span),

@@ -12,6 +12,7 @@ import {
   type AcidBaseClassification,
 } from '../physiology';
 import { defineDerived, type DeriveContext, type Term } from './context';
+import type { Kept } from '../util/small-store';
 
 /** Serum bicarbonate when the laboratory gave one, else the gas analyser's. */
 function bicarbonate(c: DeriveContext): Term | null {
@@ -20,15 +21,20 @@ function bicarbonate(c: DeriveContext): Term | null {
 
 /** The acid–base classification of this timepoint's arterial gas (computed once per timepoint). */
 export function classification(c: DeriveContext): AcidBaseClassification | null {
-  return c.memo('acid-base-classification', () => {
+  return c.memo(CLASSIFICATION);
+}
+
+const CLASSIFICATION: Kept<AcidBaseClassification | null, DeriveContext> = {
+  name: 'acid-base classification',
+  compute(c) {
     const ph = c.field('ph');
     const paco2 = c.field('paco2');
     const hco3 = c.field('hco3');
     if (!ph || !paco2 || !hco3) return null;
     const gap = c.derived('anion_gap_albumin_corrected') ?? c.derived('anion_gap');
     return classifyAcidBase({ ph: ph.value, paco2Mmhg: paco2.value, hco3MmolL: hco3.value, anionGapMmolL: gap?.value });
-  });
-}
+  },
+};
 
 export const hco3Calculated = defineDerived({
   id: 'hco3_calculated',

@@ -10,7 +10,8 @@ import type { Settings } from '../settings';
 import { formatNumber } from '../util/format';
 import { describeOrigin } from '../present';
 import type { DerivedCategory, DerivedValue, InputOrigin, MissingValue, NotApplicable, Term } from './model';
-import { keptIn, NONE } from '../util/lists';
+import { NONE } from '../util/lists';
+import { keptFor, SmallStore, type Kept } from '../util/small-store';
 
 export type { Term } from './model';
 
@@ -82,10 +83,10 @@ const IN_PROGRESS = 0;
 export class DeriveContext {
   /** Results by slot: undefined until computed. Arrays, not maps: a big note has tens of thousands of contexts. */
   private readonly results: (Evaluated | typeof IN_PROGRESS | undefined)[];
-  private memos: Map<string, unknown> | null = null;
-  private terms: Map<string, Term> | null = null;
+  private memos: SmallStore<Kept<unknown, DeriveContext>, unknown> | null = null;
+  private terms: SmallStore<string, Term> | null = null;
   /** Inputs read so far (null: not in force). A read of the values in force builds the value. */
-  private inputs: Map<string, InputValue | null> | null = null;
+  private inputs: SmallStore<string, InputValue | null> | null = null;
 
   constructor(
     readonly timepoint: Timepoint,
@@ -96,13 +97,18 @@ export class DeriveContext {
   }
 
   /** A value computed once per timepoint and shared by several definitions (e.g. the acid–base classification). */
-  memo<T>(key: string, compute: () => T): T {
-    return keptIn((this.memos ??= new Map<string, unknown>()), key, compute) as T;
+  memo<T>(kept: Kept<T, DeriveContext>): T {
+    return keptFor((this.memos ??= new SmallStore()), kept, this);
   }
 
   /** The value in force for a field, read once per context. */
   input(id: string): InputValue | null {
-    return keptIn((this.inputs ??= new Map<string, InputValue | null>()), id, () => this.timepoint.values.get(id) ?? null);
+    const inputs = (this.inputs ??= new SmallStore());
+    const known = inputs.get(id);
+    if (known !== undefined) return known;
+    const read = this.timepoint.values.get(id) ?? null;
+    inputs.set(id, read);
+    return read;
   }
 
   /** A usable stated value in force, as a formula input. */
@@ -110,7 +116,7 @@ export class DeriveContext {
     const input = this.input(id);
     if (!input || !input.stated.usable || input.stated.value === null) return null;
     // Several formulas read the same input under the same name: one term object serves them.
-    const terms = (this.terms ??= new Map<string, Term>());
+    const terms = (this.terms ??= new SmallStore());
     const known = terms.get(id);
     if (known && (name === undefined ? known.name === defaultTermName(id) : known.name === name)) return known;
     const term = termOf(input, name);
@@ -236,11 +242,11 @@ function anchorLine(def: DerivedDef, c: DeriveContext): number | null {
 }
 
 function usesCarried(terms: readonly Term[], c: DeriveContext): boolean {
-  return terms.some((t) => {
+  for (const t of terms) {
     if (t.origin.kind === 'carried') return true;
-    if (t.origin.kind === 'derived') return c.derivedValue(t.origin.id)?.usesCarried ?? false;
-    return false;
-  });
+    if (t.origin.kind === 'derived' && c.derivedValue(t.origin.id)?.usesCarried) return true;
+  }
+  return false;
 }
 
 const NOT_IN_DOMAIN: Outcome = { kind: 'na', reason: 'the inputs are outside the range where the formula holds' };

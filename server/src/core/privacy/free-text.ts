@@ -99,12 +99,22 @@ function hasFreeText(text: string, from: number, to: number): boolean {
 
 /** Identifiers on one line, with spans in line coordinates. */
 export function scanLine(node: LineNode): readonly PrivacyMatch[] {
-  let out: PrivacyMatch[] | null = null;
-  eachFreeText(node, (text, start) => {
-    for (const m of scan(text)) {
-      (out ??= []).push({ ...m, span: { start: m.span.start + start, end: m.span.end + start } });
-    }
-  });
+  found = null;
+  eachFreeText(node, scanPart);
+  const out = found;
+  found = null;
   return out ?? NONE;
 }
 
+/**
+ * The matches of the line `scanLine` is reading (null while none). One variable for all lines
+ * rather than a closure per line: a big note has thousands of lines, and a scan never starts
+ * another.
+ */
+let found: PrivacyMatch[] | null = null;
+
+function scanPart(text: string, start: number): void {
+  for (const m of scan(text)) {
+    (found ??= []).push({ ...m, span: { start: m.span.start + start, end: m.span.end + start } });
+  }
+}
