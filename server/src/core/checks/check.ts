@@ -69,8 +69,15 @@ export interface CheckDef {
   readonly runTimepoint?: (ctx: TimepointContext) => void;
 }
 
+/**
+ * A check as an object of one shape (every property present, in one order): the runner reads
+ * checks for every timepoint and every finding, and definitions of many shapes would slow each read.
+ */
 export function defineCheck(def: CheckDef): CheckDef {
-  return def;
+  return {
+    code: def.code, alias: def.alias, title: def.title, severity: def.severity, tags: def.tags, doc: def.doc, source: def.source,
+    run: def.run, runTimepoint: def.runTimepoint,
+  };
 }
 
 /**
@@ -83,16 +90,19 @@ export function headerLineCount(analysis: NoteAnalysis): number {
   return first ? first.startLine : analysis.tree.lines.length;
 }
 
-/** Visits a timepoint's lines (by index: no copy of the list per check and timepoint). */
-export function forTimepointLines(ctx: TimepointContext, visit: (node: LineNode) => void): void {
+/**
+ * Visits a timepoint's lines (by index: no copy of the list per check and timepoint). `visit`
+ * receives the context, so a check defines it once rather than once per timepoint.
+ */
+export function forTimepointLines(ctx: TimepointContext, visit: (ctx: CheckContext, node: LineNode) => void): void {
   const lines = ctx.analysis.tree.lines;
   const end = Math.min(ctx.timepoint.endLine + 1, lines.length);
-  for (let i = ctx.timepoint.startLine; i < end; i++) visit(lines[i]!);
+  for (let i = ctx.timepoint.startLine; i < end; i++) visit(ctx, lines[i]!);
 }
 
 /** Visits the note's header lines (those before the first timepoint). */
-export function forHeaderLines(ctx: CheckContext, visit: (node: LineNode) => void): void {
+export function forHeaderLines(ctx: CheckContext, visit: (ctx: CheckContext, node: LineNode) => void): void {
   const lines = ctx.analysis.tree.lines;
   const end = headerLineCount(ctx.analysis);
-  for (let i = 0; i < end; i++) visit(lines[i]!);
+  for (let i = 0; i < end; i++) visit(ctx, lines[i]!);
 }

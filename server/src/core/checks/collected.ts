@@ -10,7 +10,7 @@ import type { Severity } from '../types';
 const FORMAT_RULE = 'format rule (grammar/README.md)';
 
 function syntaxCheck(code: string, alias: SyntaxCheckAlias, title: string, severity: Severity, doc: CheckDoc): CheckDef {
-  const visit = (ctx: CheckContext) => (node: LineNode) => {
+  const visit = (ctx: CheckContext, node: LineNode) => {
     if (node.issues.length === 0) return;
     for (const issue of node.issues) {
       if (issue.check !== alias) continue;
@@ -20,10 +20,10 @@ function syntaxCheck(code: string, alias: SyntaxCheckAlias, title: string, sever
   return defineCheck({
     code, alias, title, severity, tags: ['syntax'], doc, source: FORMAT_RULE,
     run(ctx) {
-      forHeaderLines(ctx, visit(ctx));
+      forHeaderLines(ctx, visit);
     },
     runTimepoint(ctx) {
-      forTimepointLines(ctx, visit(ctx));
+      forTimepointLines(ctx, visit);
     },
   });
 }

@@ -86,5 +86,13 @@ export function checkByCodeOrAlias(key: string): CheckDef | undefined {
 
 /** Anchor of a check's section in docs/checks.md. */
 export function docAnchor(check: Pick<CheckDef, 'code' | 'alias'>): string {
-  return `${check.code.toLowerCase()}-${check.alias}`;
+  // Kept per check: every finding carries its check's anchor, and a big note has thousands.
+  let anchor = ANCHORS.get(check);
+  if (anchor === undefined) {
+    anchor = `${check.code.toLowerCase()}-${check.alias}`;
+    ANCHORS.set(check, anchor);
+  }
+  return anchor;
 }
+
+const ANCHORS = new WeakMap<Pick<CheckDef, 'code' | 'alias'>, string>();

@@ -64,7 +64,7 @@ export interface FieldDef {
 
 const CP = 'common practice, no source';
 
-export const FIELDS: readonly FieldDef[] = [
+const ROWS: readonly FieldDef[] = [
   // ── patient ───────────────────────────────────────────────────────────
   { id: 'age', label: 'Age', description: 'Age in years.', sections: ['patient'], aliases: ['age'], kind: 'number', dimension: 'age', unit: 'y', units: ['y', 'mo'], hard: { min: 0, max: 130 }, boundsSource: CP, loinc: { code: '30525-0', display: 'Age', fromMemory: true }, decimals: 0 },
   { id: 'sex', label: 'Sex', description: 'Sex used by predicted-body-weight equations (female or male).', sections: ['patient'], aliases: ['sex'], kind: 'word', words: { female: 'female', f: 'female', woman: 'female', male: 'male', m: 'male', man: 'male' }, decimals: 0 },
@@ -130,6 +130,26 @@ export const FIELDS: readonly FieldDef[] = [
   { id: 'albumin', label: 'Albumin', description: 'Serum albumin (g/dL; write g/L explicitly).', sections: ['labs'], aliases: ['albumin', 'alb'], kind: 'number', dimension: 'mass-concentration', unit: 'g/dL', units: ['g/dL', 'g/L'], hard: { min: 0.3, max: 8 }, soft: { min: 1, max: 6 }, boundsSource: CP, loinc: { code: '1751-7', display: 'Albumin [Mass/volume] in Serum or Plasma' }, decimals: 1 },
   { id: 'glucose', label: 'Glucose', description: 'Blood glucose.', sections: ['labs', 'abg', 'vbg'], aliases: ['glucose', 'glu'], kind: 'number', dimension: 'substance-concentration', unit: 'mmol/L', units: ['mmol/L'], hard: { min: 0.2, max: 150 }, soft: { min: 1.5, max: 40 }, boundsSource: CP, loinc: { code: '2345-7', display: 'Glucose [Mass/volume] in Serum or Plasma', fromMemory: true }, decimals: 1 },
 ];
+
+/**
+ * Every row as an object of one shape: all properties present, in one order (absent ones
+ * undefined). Code that reads fields runs for every value of a note, and rows of many shapes
+ * would make each of those reads search a table of shapes.
+ */
+function oneShape(f: FieldDef): FieldDef {
+  return {
+    id: f.id, label: f.label, short: f.short, description: f.description, sections: f.sections, aliases: f.aliases, kind: f.kind,
+    dimension: f.dimension, unit: f.unit, units: f.units, bare: f.bare, hard: f.hard && oneBounds(f.hard), soft: f.soft && oneBounds(f.soft),
+    boundsSource: f.boundsSource, loinc: f.loinc, words: f.words, openWords: f.openWords, reading: f.reading, decimals: f.decimals,
+  };
+}
+
+/** Bounds of one shape too (`min` and `max` both present). */
+function oneBounds(b: Bounds): Bounds {
+  return { min: b.min, max: b.max };
+}
+
+export const FIELDS: readonly FieldDef[] = ROWS.map(oneShape);
 
 const bySectionKey = new Map<SectionId, Map<string, FieldDef>>();
 const byId = new Map<string, FieldDef>();
