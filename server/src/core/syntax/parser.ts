@@ -299,7 +299,7 @@ function token(text: string, start: number, end: number): Chunk {
  */
 class NumberNode implements NumberValue, Span {
   constructor(
-    private readonly source: string,
+    readonly source: string,
     readonly value: number,
     readonly start: number,
     readonly end: number,
@@ -363,24 +363,65 @@ function readSlashGroup(chunk: Chunk, source: string): PairValue | null {
 /**
  * An item: `key value [unit]`, or a value whose key is implied by its place (a shorthand gas part,
  * an oxygen device and its flow). Every item is of this one class (so code that reads items sees
- * one shape). It is its own span (`span` returns the item, which holds `start` and `end`), and it
- * holds its key's text rather than a token: the key starts the item, so `key` builds the token when
- * asked. One object per item of a big note instead of three.
+ * one shape). It is its own span (`span` returns the item, which holds `start` and `end`).
+ *
+ * A big note keeps one item per value, so an item keeps its parts flat rather than as objects of
+ * their own: its key's text (the key starts the item), a number value's digits (where they are and
+ * what they read as) and its unit's text and start. `key`, `value` and `unit` build the token or
+ * the number when asked; a pair or a word value is kept as it is. One object per item instead of three.
  */
 class Item implements ItemNode, Span {
+  /** A pair or word value; null for a number value (kept flat below) or no value. */
+  private readonly other: PairValue | WordValue | null;
+  /** The line the number is on, its value (NaN: no number value), where it is, and how it was written. */
+  private readonly source: string;
+  private readonly num: number;
+  private readonly numStart: number;
+  private readonly numEnd: number;
+  private readonly numComma: boolean;
+  private readonly unitText: string | null;
+  private readonly unitStart: number;
+
   constructor(
     private readonly keyText: string | null,
     readonly keyName: string,
     readonly implied: ItemNode['implied'],
     readonly field: FieldDef | null,
-    readonly value: ValueNode | null,
-    readonly unit: Token | null,
+    value: ValueNode | null,
+    unit: Token | null,
     readonly start: number,
     readonly end: number,
-  ) {}
+  ) {
+    if (value instanceof NumberNode) {
+      this.other = null;
+      this.source = value.source;
+      this.num = value.value;
+      this.numStart = value.start;
+      this.numEnd = value.end;
+      this.numComma = value.decimalComma;
+    } else {
+      this.other = value?.kind === 'number' ? null : value;
+      this.source = '';
+      this.num = NaN;
+      this.numStart = 0;
+      this.numEnd = 0;
+      this.numComma = false;
+    }
+    this.unitText = unit?.text ?? null;
+    this.unitStart = unit?.span.start ?? 0;
+  }
 
   get key(): Token | null {
     return this.keyText === null ? null : token(this.keyText, this.start, this.start + this.keyText.length);
+  }
+
+  get value(): ValueNode | null {
+    if (this.other !== null) return this.other;
+    return Number.isNaN(this.num) ? null : new NumberNode(this.source, this.num, this.numStart, this.numEnd, this.numComma);
+  }
+
+  get unit(): Token | null {
+    return this.unitText === null ? null : token(this.unitText, this.unitStart, this.unitStart + this.unitText.length);
   }
 
   get span(): Span {
