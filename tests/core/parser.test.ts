@@ -153,6 +153,30 @@ describe('section lines', () => {
     expect(at(text, issue?.span)).toBe('7,35');
   });
 
+  it('reads a pair as written: its text, span and numbers, the same on every read', () => {
+    const text = 'vitals hr 80, bp 120/80, temp 37.1 C';
+    const bp = section(text).items.find((i) => i.keyName === 'bp')!;
+    expect(bp.value?.kind).toBe('pair');
+    if (bp.value?.kind !== 'pair') return;
+    expect(bp.value.text).toBe('120/80');
+    expect(at(text, bp.value.span)).toBe('120/80');
+    expect(bp.value.parts.map((p) => [p.value, p.text, at(text, p.span), p.decimalComma])).toEqual([[120, '120', '120', false], [80, '80', '80', false]]);
+    expect(bp.value.parts).toEqual(bp.value.parts);
+  });
+
+  it('reports each decimal comma inside a pair, with its own fix', () => {
+    const text = 'vitals bp 120,5/80,5';
+    const node = section(text);
+    const issues = node.issues.filter((i) => i.check === 'decimal-comma');
+    expect(issues.map((i) => at(text, i.span))).toEqual(['120,5', '80,5']);
+    expect(issues.map((i) => i.fixes[0]?.edits[0]?.newText)).toEqual(['120.5', '80.5']);
+  });
+
+  it('points a bad shorthand at the whole group', () => {
+    const text = 'abg 1/2/3/4/5';
+    expect(at(text, section(text).issues[0]?.span)).toBe('1/2/3/4/5');
+  });
+
   it('reports a key without a value and a value without a key', () => {
     expect(section('vitals hr, rr 12').issues.map((i) => i.check)).toEqual(['missing-value']);
     expect(section('vitals hr 80 90').issues.map((i) => i.check)).toEqual(['stray-text']);

@@ -71,7 +71,9 @@ export function readItem(item: ItemNode, section: SectionId, line: number, ctx: 
   if ((field.kind === 'pair') !== (v.kind === 'pair') || v.kind === 'word') return null; // shape problems are reported by the syntax checks
   const canonical = field.unit ? unitById(field.unit) : undefined;
   if (!canonical) return null;
-  const first = v.kind === 'number' ? v.value : (v.parts[0]?.value ?? 0);
+  // A pair's numbers are built when asked for: read them once.
+  const pairParts = v.kind === 'pair' ? v.parts : null;
+  const first = v.kind === 'number' ? v.value : (pairParts?.[0]?.value ?? 0);
 
   // Which unit was the number written in?
   let readUnit: UnitDef | undefined;
@@ -99,9 +101,10 @@ export function readItem(item: ItemNode, section: SectionId, line: number, ctx: 
   } else {
     // Of its exact length: an array grown by push keeps room for 17 numbers, and a big note keeps
     // thousands of these.
-    parts = new Array<number>(v.parts.length);
-    for (let k = 0; k < v.parts.length; k++) {
-      const c = convert(v.parts[k]!.value, readUnit, canonical);
+    const written = pairParts ?? [];
+    parts = new Array<number>(written.length);
+    for (let k = 0; k < written.length; k++) {
+      const c = convert(written[k]!.value, readUnit, canonical);
       if (c === null) return null;
       if (field.hard && !within(c, field.hard)) usable = false;
       parts[k] = c;

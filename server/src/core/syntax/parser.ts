@@ -340,24 +340,70 @@ function readNumberChunk(chunk: Chunk, source: string): ChunkValue {
   return { value, gluedUnit: token(suffix, value.end, chunk.end) };
 }
 
-function readSlashGroup(chunk: Chunk, source: string): PairValue | null {
+function readSlashGroup(chunk: Chunk, source: string): PairNode | null {
   const text = chunk.text;
   let slash = text.indexOf('/');
   if (slash < 0) return null;
   // Numbers separated by single slashes, read in place (no split of the chunk).
-  const parts: NumberValue[] = [];
+  const packed: number[] = [];
   let from = 0;
   for (;;) {
     const end = slash < 0 ? text.length : slash;
     const num = leadingNumber(text, from);
     if (end === from || num.length !== end - from) return null;
     const start = chunk.start + from;
-    parts.push(new NumberNode(source, num.value, start, start + (end - from), num.decimalComma));
+    packed.push(num.value, start, start + (end - from), num.decimalComma ? 1 : 0);
     if (slash < 0) break;
     from = slash + 1;
     slash = text.indexOf('/', from);
   }
-  return { kind: 'pair', text, parts: parts.slice(), span: chunk }; // exact length (see parseItems)
+  return new PairNode(source, chunk.start, chunk.end, packed.slice()); // exact length (see parseItems)
+}
+
+/**
+ * Numbers joined by slashes (`120/80`). Like a number, it keeps the line it is on and cuts its text
+ * when asked; its numbers are kept flat, four entries each (value, start, end, 1 for a decimal
+ * comma), and built as number nodes when `parts` is asked for. A big note has a blood pressure at
+ * every timepoint: one object and one array each, instead of seven objects.
+ */
+class PairNode implements PairValue, Span {
+  constructor(
+    private readonly source: string,
+    readonly start: number,
+    readonly end: number,
+    private readonly packed: readonly number[],
+  ) {}
+
+  /** On the class, not on each pair. */
+  get kind(): 'pair' {
+    return 'pair';
+  }
+
+  get text(): string {
+    return this.source.slice(this.start, this.end);
+  }
+
+  get span(): Span {
+    return this;
+  }
+
+  /** How many numbers the pair has (without building them). */
+  get count(): number {
+    return this.packed.length / 4;
+  }
+
+  /** Built on each read: callers read them once. */
+  get parts(): readonly NumberValue[] {
+    const p = this.packed;
+    const parts = new Array<NumberValue>(p.length / 4);
+    for (let k = 0; k < parts.length; k++) parts[k] = new NumberNode(this.source, p[4 * k]!, p[4 * k + 1]!, p[4 * k + 2]!, p[4 * k + 3] === 1);
+    return parts;
+  }
+
+  hasDecimalComma(): boolean {
+    for (let k = 3; k < this.packed.length; k += 4) if (this.packed[k] === 1) return true;
+    return false;
+  }
 }
 
 /**
@@ -415,6 +461,12 @@ class Item implements ItemNode, Span {
     return this.keyText === null ? null : token(this.keyText, this.start, this.start + this.keyText.length);
   }
 
+  /** Whether a number of the value was written with a decimal comma. */
+  hasDecimalComma(): boolean {
+    if (this.other instanceof PairNode) return this.other.hasDecimalComma();
+    return this.numComma;
+  }
+
   get value(): ValueNode | null {
     if (this.other !== null) return this.other;
     return Number.isNaN(this.num) ? null : new NumberNode(this.source, this.num, this.numStart, this.numEnd, this.numComma);
@@ -450,7 +502,7 @@ function deviceWordAt(chunks: readonly Chunk[], i: number): { text: string; span
 
 /** `source` is the text of the line (spans and numbers' texts refer to it). */
 function parseItems(section: SectionId, chunks: readonly Chunk[], start: number, issues: SyntaxIssue[], source: string): readonly ItemNode[] {
-  const items: ItemNode[] = [];
+  const items: Item[] = [];
   let i = start;
   const n = chunks.length;
 
@@ -474,8 +526,8 @@ function parseItems(section: SectionId, chunks: readonly Chunk[], start: number,
     const group = readSlashGroup(chunks[start], source);
     if (group) {
       i = start + 1;
-      if (group.parts.length < 2 || group.parts.length > 4) {
-        issues.push({ check: 'bad-shorthand', span: group.span, message: `A shorthand gas has 2 to 4 numbers (pH/PCO2/PO2/HCO3); this one has ${group.parts.length}.`, fixes: [] });
+      if (group.count < 2 || group.count > 4) {
+        issues.push({ check: 'bad-shorthand', span: { start: group.start, end: group.end }, message: `A shorthand gas has 2 to 4 numbers (pH/PCO2/PO2/HCO3); this one has ${group.count}.`, fixes: [] });
       } else {
         const unit = takeUnit(null);
         group.parts.forEach((part, k) => {
@@ -558,9 +610,11 @@ function parseItems(section: SectionId, chunks: readonly Chunk[], start: number,
     items.push(new Item(key.text, keyName, null, field ?? null, value, unit, key.start, end));
   }
 
-  // Decimal commas anywhere in the line's numbers.
+  // Decimal commas anywhere in the line's numbers (few lines have one: asked of each item without building its number).
   for (const item of items) {
-    const numbers: NumberValue[] = item.value?.kind === 'number' ? [item.value] : item.value?.kind === 'pair' ? [...item.value.parts] : [];
+    if (!item.hasDecimalComma()) continue;
+    const value = item.value;
+    const numbers: readonly NumberValue[] = value?.kind === 'number' ? [value] : value?.kind === 'pair' ? value.parts : NONE;
     for (const num of numbers) {
       if (!num.decimalComma) continue;
       const fixed = num.text.replace(',', '.');
