@@ -25,6 +25,7 @@ import type { InputValue, Origin, StatedValue, Timepoint, TimepointTime } from '
 import type { ReadIssue } from './read-issues';
 import { readItem, type ReadContext } from './read-value';
 import { NONE, pushAll } from '../util/lists';
+import { compact } from '../util/numbers';
 
 interface Held {
   readonly stated: StatedValue;
@@ -213,14 +214,14 @@ function timeOf(node: TimepointLine, last: TimepointTime, isFirst: boolean): Tim
     const base = last.minutes ?? (isFirst ? 0 : null);
     if (base === null || t.minutes === null) return { day: null, minutes: null };
     const minutes = base + t.minutes;
-    return { day: Math.floor(minutes / 1440) + 1, minutes };
+    return { day: compact(Math.floor(minutes / 1440) + 1), minutes: compact(minutes) };
   }
-  if (t.kind === 'day') return { day: t.day, minutes: t.day === null ? null : (t.day - 1) * 1440 };
+  if (t.kind === 'day') return { day: t.day, minutes: t.day === null ? null : compact((t.day - 1) * 1440) };
   // clock
   if (t.minutes === null) return { day: null, minutes: null };
   let day = t.day ?? last.day ?? 1;
   if (t.day === null && last.minutes !== null && (day - 1) * 1440 + t.minutes < last.minutes) day += 1; // past midnight
-  return { day, minutes: (day - 1) * 1440 + t.minutes };
+  return { day: compact(day), minutes: compact((day - 1) * 1440 + t.minutes) };
 }
 
 /** How bare numbers are read, and the held values it was worked out from. */

@@ -4,6 +4,7 @@
  * decimal comma, reported later). Linear in the length of the line; no regular expressions.
  */
 import type { Span } from './tree';
+import { compact } from '../util/numbers';
 
 /**
  * A chunk of a line: its text and where it is. A chunk is its own span (`span` returns the chunk),
@@ -117,5 +118,5 @@ function numberValue(text: string, at: number, digitsStart: number, end: number)
   }
   if (digits > 15) return Number(text.slice(at, end).replace(',', '.').replace('−', '-'));
   const magnitude = decimals > 0 ? mantissa / POWERS_OF_TEN[decimals]! : mantissa;
-  return digitsStart > at && text.charCodeAt(at) !== 0x2b /* + */ ? -magnitude : magnitude;
+  return compact(digitsStart > at && text.charCodeAt(at) !== 0x2b /* + */ ? -magnitude : magnitude);
 }

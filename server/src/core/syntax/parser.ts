@@ -23,6 +23,7 @@ import type {
   WordValue,
 } from './tree';
 import { NONE } from '../util/lists';
+import { compact } from '../util/numbers';
 
 export interface LineSlice {
   readonly text: string;
@@ -198,14 +199,14 @@ function parseTimepoint(body: string, chunks: Chunk[], line: number, text: strin
       const c2 = rest[2];
       const clock = c2 ? readClock(c2.text) : null;
       if (c2 && clock !== null) {
-        time = { kind: 'clock', day: dayNum.value, minutes: clock, span: { start: c0.span.start, end: c2.span.end }, text: body.slice(c0.span.start, c2.span.end) };
+        time = { kind: 'clock', day: compact(dayNum.value), minutes: clock, span: { start: c0.span.start, end: c2.span.end }, text: body.slice(c0.span.start, c2.span.end) };
         used = 3;
       } else {
         if (c2 && looksLikeClock(c2.text)) {
           issues.push({ check: 'bad-time', span: c2.span, message: `\`${c2.text}\` is not a time of day (00:00 to 23:59).`, fixes: [] });
           used = 3;
         } else used = 2;
-        time = { kind: 'day', day: dayNum.value, minutes: null, span: { start: c0.span.start, end: c1.span.end }, text: body.slice(c0.span.start, c1.span.end) };
+        time = { kind: 'day', day: compact(dayNum.value), minutes: null, span: { start: c0.span.start, end: c1.span.end }, text: body.slice(c0.span.start, c1.span.end) };
       }
     }
   } else if (c0.text.startsWith('+')) {
@@ -261,7 +262,7 @@ export function readClock(text: string): number | null {
   const h = Number(text.slice(0, colon));
   const m = Number(text.slice(colon + 1));
   if (h > 23 || m > 59) return null;
-  return h * 60 + m;
+  return compact(h * 60 + m);
 }
 
 /** `+2h30`, `+2h`, `+45m`, `+45min`, `+1d`, `+1d6h` → minutes; null when unreadable. */
@@ -396,7 +397,8 @@ class PairNode implements PairValue, Span {
   get parts(): readonly NumberValue[] {
     const p = this.packed;
     const parts = new Array<NumberValue>(p.length / 4);
-    for (let k = 0; k < parts.length; k++) parts[k] = new NumberNode(this.source, p[4 * k]!, p[4 * k + 1]!, p[4 * k + 2]!, p[4 * k + 3] === 1);
+    // Positions come back from the array as they went in, whole; `compact` keeps them unboxed.
+    for (let k = 0; k < parts.length; k++) parts[k] = new NumberNode(this.source, compact(p[4 * k]!), compact(p[4 * k + 1]!), compact(p[4 * k + 2]!), p[4 * k + 3] === 1);
     return parts;
   }
 
@@ -419,9 +421,13 @@ class PairNode implements PairValue, Span {
 class Item implements ItemNode, Span {
   /** A pair or word value; null for a number value (kept flat below) or no value. */
   private readonly other: PairValue | WordValue | null;
-  /** The line the number is on, its value (NaN: no number value), where it is, and how it was written. */
+  /**
+   * The line the number is on, its value (null: no number value), where it is, and how it was
+   * written. `num` may hold null, so a whole number is kept in the item itself rather than in a
+   * box of its own (as a field that only ever holds numbers would keep it).
+   */
   private readonly source: string;
-  private readonly num: number;
+  private readonly num: number | null;
   private readonly numStart: number;
   private readonly numEnd: number;
   private readonly numComma: boolean;
@@ -441,14 +447,14 @@ class Item implements ItemNode, Span {
     if (value instanceof NumberNode) {
       this.other = null;
       this.source = value.source;
-      this.num = value.value;
+      this.num = compact(value.value);
       this.numStart = value.start;
       this.numEnd = value.end;
       this.numComma = value.decimalComma;
     } else {
       this.other = value?.kind === 'number' ? null : value;
       this.source = '';
-      this.num = NaN;
+      this.num = null;
       this.numStart = 0;
       this.numEnd = 0;
       this.numComma = false;
@@ -469,7 +475,7 @@ class Item implements ItemNode, Span {
 
   get value(): ValueNode | null {
     if (this.other !== null) return this.other;
-    return Number.isNaN(this.num) ? null : new NumberNode(this.source, this.num, this.numStart, this.numEnd, this.numComma);
+    return this.num === null ? null : new NumberNode(this.source, this.num, this.numStart, this.numEnd, this.numComma);
   }
 
   get unit(): Token | null {
