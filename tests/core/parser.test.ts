@@ -206,6 +206,15 @@ describe('timepoints', () => {
     expect(timepoint('@ +2h30 later').time).toMatchObject({ kind: 'offset', minutes: 150 });
   });
 
+  it('keeps each time form\'s text and span as written, a comment after it or not', () => {
+    const cases: [string, string][] = [['@ day 2 07:40  ward', 'day 2 07:40'], ['@ 07:40', '07:40'], ['@07:40 x', '07:40'], ['@ day 3 # first day', 'day 3'], ['@  +2h30  later', '+2h30']];
+    for (const [text, written] of cases) {
+      const time = timepoint(text).time;
+      expect(time?.text, text).toBe(written);
+      expect(text.slice(time?.span.start, time?.span.end), text).toBe(written);
+    }
+  });
+
   it('reads offsets in days, hours and minutes', () => {
     expect(readOffset('+2h30')).toBe(150);
     expect(readOffset('+2h')).toBe(120);

@@ -160,7 +160,8 @@ function processBlock(lines: readonly LineNode[], start: number, end: number, in
   const issues: ReadIssue[] = [];
   const header: StatedValue[] = [];
   const first = start < end ? lines[start] : undefined;
-  const mutable: MutableState = { ...stateIn };
+  // Written out rather than spread: a spread copy keeps its fields outside the object, in a second one.
+  const mutable: MutableState = { patient: stateIn.patient, place: stateIn.place, oxygen: stateIn.oxygen, vent: stateIn.vent, gasUnit: stateIn.gasUnit, lastTime: stateIn.lastTime };
   // Header values and timepoint values are told apart (a header line and a timepoint line of one block).
   let seenInHeader: FirstSeen | null = null;
   let seenAtTimepoint: FirstSeen | null = null;

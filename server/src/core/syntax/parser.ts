@@ -142,7 +142,7 @@ function parseLineUnsafe(text: string, line: number): LineNode {
   if (section.id === 'note') {
     const proseStart = chunks[1]?.span.start;
     const proseEnd = chunks[chunks.length - 1]?.span.end ?? first.span.end;
-    const prose: Token | null = proseStart === undefined ? null : token(body.slice(proseStart, proseEnd), proseStart, proseEnd);
+    const prose: Token | null = proseStart === undefined ? null : new CutToken(body, proseStart, proseEnd);
     return { kind: 'section', line, text, comment, section: section.id, sectionToken, items: NONE, prose, issues: NONE };
   }
   const issues: SyntaxIssue[] = [];
@@ -199,14 +199,14 @@ function parseTimepoint(body: string, chunks: Chunk[], line: number, text: strin
       const c2 = rest[2];
       const clock = c2 ? readClock(c2.text) : null;
       if (c2 && clock !== null) {
-        time = { kind: 'clock', day: compact(dayNum.value), minutes: clock, span: { start: c0.span.start, end: c2.span.end }, text: body.slice(c0.span.start, c2.span.end) };
+        time = new TimeNode('clock', compact(dayNum.value), clock, body, c0.span.start, c2.span.end);
         used = 3;
       } else {
         if (c2 && looksLikeClock(c2.text)) {
           issues.push({ check: 'bad-time', span: c2.span, message: `\`${c2.text}\` is not a time of day (00:00 to 23:59).`, fixes: [] });
           used = 3;
         } else used = 2;
-        time = { kind: 'day', day: compact(dayNum.value), minutes: null, span: { start: c0.span.start, end: c1.span.end }, text: body.slice(c0.span.start, c1.span.end) };
+        time = new TimeNode('day', compact(dayNum.value), null, body, c0.span.start, c1.span.end);
       }
     }
   } else if (c0.text.startsWith('+')) {
@@ -215,13 +215,13 @@ function parseTimepoint(body: string, chunks: Chunk[], line: number, text: strin
     if (minutes === null) {
       issues.push({ check: 'bad-time', span: c0.span, message: `\`${c0.text}\` is not an offset; write it like \`+2h30\`, \`+45m\` or \`+1d\`.`, fixes: [] });
     } else {
-      time = { kind: 'offset', day: null, minutes, span: c0.span, text: c0.text };
+      time = new TimeNode('offset', null, compact(minutes), body, c0.span.start, c0.span.end);
     }
   } else {
     const clock = readClock(c0.text);
     used = 1;
     if (clock !== null) {
-      time = { kind: 'clock', day: null, minutes: clock, span: c0.span, text: c0.text };
+      time = new TimeNode('clock', null, clock, body, c0.span.start, c0.span.end);
     } else if (looksLikeDate(c0.text)) {
       issues.push({ check: 'bad-time', span: c0.span, message: `\`${c0.text}\` looks like a calendar date; Pneumark notes use relative days instead (\`@ day 2 08:00\`), which keeps dates of care out of shared notes.`, fixes: [] });
     } else if (looksLikeClock(c0.text)) {
@@ -236,6 +236,45 @@ function parseTimepoint(body: string, chunks: Chunk[], line: number, text: strin
   const lN = labelChunks[labelChunks.length - 1];
   const label: Token | null = l0 && lN ? token(body.slice(l0.start, lN.end), l0.start, lN.end) : null;
   return { kind: 'timepoint', line, text, comment, marker, time, label, issues: issues.length === 0 ? NONE : issues };
+}
+
+/**
+ * A node cut from its line when its text is asked for: it keeps the line and where it is in it,
+ * and is its own span. Numbers, pairs, times and prose are nodes of this kind: a big note has
+ * tens of thousands, most of whose texts are never read, and each is one object rather than
+ * an object, a span and a string.
+ */
+class Cut implements Span {
+  constructor(
+    readonly source: string,
+    readonly start: number,
+    readonly end: number,
+  ) {}
+
+  get span(): Span {
+    return this;
+  }
+
+  get text(): string {
+    return this.source.slice(this.start, this.end);
+  }
+}
+
+/** A token cut from its line (a note line's prose). */
+class CutToken extends Cut implements Token {}
+
+/** The time of a timepoint line. */
+class TimeNode extends Cut implements TimeSpec {
+  constructor(
+    readonly kind: TimeSpec['kind'],
+    readonly day: number | null,
+    readonly minutes: number | null,
+    source: string,
+    start: number,
+    end: number,
+  ) {
+    super(source, start, end);
+  }
 }
 
 function looksLikeClock(text: string): boolean {
@@ -294,30 +333,21 @@ function token(text: string, start: number, end: number): Chunk {
   return new Chunk(text, start, end, false);
 }
 
-/**
- * A number as written. Like a chunk, it is its own span; it keeps the line it is on rather
- * than a string of its own, and cuts its text from it when asked (few numbers ever are).
- */
-class NumberNode implements NumberValue, Span {
+/** A number as written (cut from its line when its text is asked for; few numbers' texts ever are). */
+class NumberNode extends Cut implements NumberValue {
   constructor(
-    readonly source: string,
+    source: string,
     readonly value: number,
-    readonly start: number,
-    readonly end: number,
+    start: number,
+    end: number,
     readonly decimalComma: boolean,
-  ) {}
+  ) {
+    super(source, start, end);
+  }
 
   /** On the class, not on each number. */
   get kind(): 'number' {
     return 'number';
-  }
-
-  get text(): string {
-    return this.source.slice(this.start, this.end);
-  }
-
-  get span(): Span {
-    return this;
   }
 }
 
@@ -362,30 +392,23 @@ function readSlashGroup(chunk: Chunk, source: string): PairNode | null {
 }
 
 /**
- * Numbers joined by slashes (`120/80`). Like a number, it keeps the line it is on and cuts its text
- * when asked; its numbers are kept flat, four entries each (value, start, end, 1 for a decimal
- * comma), and built as number nodes when `parts` is asked for. A big note has a blood pressure at
- * every timepoint: one object and one array each, instead of seven objects.
+ * Numbers joined by slashes (`120/80`). Its numbers are kept flat, four entries each (value,
+ * start, end, 1 for a decimal comma), and built as number nodes when `parts` is asked for. A big
+ * note has a blood pressure at every timepoint: one object and one array each, instead of seven.
  */
-class PairNode implements PairValue, Span {
+class PairNode extends Cut implements PairValue {
   constructor(
-    private readonly source: string,
-    readonly start: number,
-    readonly end: number,
+    source: string,
+    start: number,
+    end: number,
     private readonly packed: readonly number[],
-  ) {}
+  ) {
+    super(source, start, end);
+  }
 
   /** On the class, not on each pair. */
   get kind(): 'pair' {
     return 'pair';
-  }
-
-  get text(): string {
-    return this.source.slice(this.start, this.end);
-  }
-
-  get span(): Span {
-    return this;
   }
 
   /** How many numbers the pair has (without building them). */
