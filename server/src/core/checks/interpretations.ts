@@ -4,8 +4,10 @@
  * by `pneumark show` and in hovers.
  */
 import type { InterpretationTopic } from '../derive/model';
-import { toRange } from '../syntax/tree';
-import { defineCheck, type CheckDef, type CheckDoc } from './check';
+import { toRange, type LineNode } from '../syntax/tree';
+import type { Range } from '../types';
+import { defineCheck, type CheckDef, type CheckDoc, type TimepointContext } from './check';
+import type { Kept } from '../util/small-store';
 
 function interpretationCheck(code: string, alias: string, title: string, topics: readonly InterpretationTopic[], source: string, doc: CheckDoc): CheckDef {
   return defineCheck({
@@ -13,13 +15,36 @@ function interpretationCheck(code: string, alias: string, title: string, topics:
     runTimepoint(ctx) {
       for (const i of ctx.derivation.interpretations) {
         if (!topics.includes(i.topic) || !i.notable || i.line === null) continue;
-        const node = ctx.analysis.tree.lines[i.line];
-        const start = node?.kind === 'section' ? node.sectionToken.span.start : 0;
-        const end = node?.kind === 'section' ? (node.items[node.items.length - 1]?.span.end ?? node.sectionToken.span.end) : (node?.text.length ?? 0);
-        ctx.report({ range: toRange(i.line, { start, end }), message: i.text });
+        ctx.report({ range: readingRange(ctx, i.line), message: i.text });
       }
     },
   });
+}
+
+/** The last range a reading of this timepoint was shown at, and the line it was worked out for. */
+interface LastRange {
+  node: LineNode | undefined;
+  line: number;
+  range: Range | null;
+}
+
+const LAST_RANGE: Kept<LastRange, TimepointContext> = { name: 'last reading range', compute: () => ({ node: undefined, line: -1, range: null }) };
+
+/**
+ * Where a reading is shown: its line from the section word to the last item. A gas gives several
+ * readings (oxygenation, ventilation, acid–base) on one line, reported one after another by the
+ * checks of its timepoint: they share one range (ranges are never changed once made).
+ */
+function readingRange(ctx: TimepointContext, line: number): Range {
+  const last = ctx.shared(LAST_RANGE);
+  const node = ctx.analysis.tree.lines[line];
+  if (last.range && last.node === node && last.line === line) return last.range;
+  const start = node?.kind === 'section' ? node.sectionToken.span.start : 0;
+  const end = node?.kind === 'section' ? (node.items[node.items.length - 1]?.span.end ?? node.sectionToken.span.end) : (node?.text.length ?? 0);
+  last.node = node;
+  last.line = line;
+  last.range = toRange(line, { start, end });
+  return last.range;
 }
 
 /** A reading is information, never a fault: the same advice for every reading check. */
