@@ -20,20 +20,50 @@ export interface ReadContext extends BoundsContext {
 /**
  * A stated value, one per value of a note, kept as long as the note: an object of one shape whose
  * field id and canonical unit are read from the item's field (the item knows it) rather than kept.
+ * Its number, numbers or word share one field (a value has one of them), and its two flags one
+ * number: a big note keeps tens of thousands of these.
  */
 class Stated implements StatedValue {
+  /** The canonical number, the canonical numbers of a pair, or the canonical word; null when unread. */
+  private readonly data: number | readonly number[] | string | null;
+  /** 1: the unit was implied; 2: usable. */
+  private readonly flags: number;
+
   constructor(
     readonly section: SectionId,
     readonly line: number,
     readonly item: ItemNode,
-    readonly value: number | null,
-    readonly parts: readonly number[] | null,
-    readonly word: string | null,
+    value: number | null,
+    parts: readonly number[] | null,
+    word: string | null,
     readonly readUnit: string | null,
-    readonly unitImplied: boolean,
+    unitImplied: boolean,
     readonly unitDoubt: string | null,
-    readonly usable: boolean,
-  ) {}
+    usable: boolean,
+  ) {
+    this.data = value ?? parts ?? word;
+    this.flags = (unitImplied ? 1 : 0) | (usable ? 2 : 0);
+  }
+
+  get value(): number | null {
+    return typeof this.data === 'number' ? this.data : null;
+  }
+
+  get parts(): readonly number[] | null {
+    return typeof this.data === 'object' ? this.data : null;
+  }
+
+  get word(): string | null {
+    return typeof this.data === 'string' ? this.data : null;
+  }
+
+  get unitImplied(): boolean {
+    return (this.flags & 1) !== 0;
+  }
+
+  get usable(): boolean {
+    return (this.flags & 2) !== 0;
+  }
 
   get fieldId(): string {
     return this.item.field!.id;
