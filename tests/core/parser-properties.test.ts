@@ -6,7 +6,7 @@ import { checkNote } from '../../server/src/core/check-note';
 import { leadingNumber } from '../../server/src/core/syntax/lexer';
 import { parseNote, splitLines } from '../../server/src/core/syntax/parser';
 import type { Range } from '../../server/src/core/types';
-import { anyText } from '../helpers/arbitraries';
+import { anyText, nearlyValidNote } from '../helpers/arbitraries';
 
 export const PROPERTY_RUNS = 600;
 
@@ -22,6 +22,25 @@ describe('parser properties', () => {
         const tree = parseNote(text);
         expect(tree.lines.length).toBe(splitLines(text).lines.length);
         tree.lines.forEach((node, i) => expect(node.line).toBe(i));
+      }),
+      { numRuns: PROPERTY_RUNS },
+    );
+  });
+
+  it(`gives the same value and unit through an item's flat accessors as through its nodes (${PROPERTY_RUNS} generated notes)`, () => {
+    fc.assert(
+      fc.property(fc.oneof(anyText, nearlyValidNote), (text) => {
+        for (const node of parseNote(text).lines) {
+          if (node.kind !== 'section') continue;
+          for (const item of node.items) {
+            const value = item.value;
+            expect(item.valueKind).toBe(value?.kind ?? null);
+            expect(item.number).toBe(value?.kind === 'number' ? value.value : null);
+            expect(item.unitText).toBe(item.unit?.text ?? null);
+            if (value) expect(node.text.slice(value.span.start, value.span.end)).toBe(value.text);
+            if (item.unit) expect(node.text.slice(item.unit.span.start, item.unit.span.end)).toBe(item.unit.text);
+          }
+        }
       }),
       { numRuns: PROPERTY_RUNS },
     );

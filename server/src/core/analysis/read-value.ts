@@ -6,7 +6,7 @@
 import { canonicalWord, FIELDS, keysInSection, type FieldDef } from '../fields/registry';
 import type { SectionId } from '../fields/sections';
 import { convert, unitById, unitsForSpelling, type UnitDef } from '../fields/units';
-import type { ItemNode, LineFix } from '../syntax/tree';
+import type { ItemNode, LineFix, PairValue } from '../syntax/tree';
 import { formatNumber } from '../util/format';
 import { closest } from '../util/suggest';
 import { softBounds, within, type BoundsContext } from './bounds';
@@ -86,11 +86,12 @@ export function readItem(item: ItemNode, section: SectionId, line: number, ctx: 
     if (item.key) issues.push(unknownKeyIssue(item, section, line));
     return null;
   }
-  const v = item.value;
-  if (!v) return null;
+  // Read through the item's flat accessors: its value and unit are built only where needed.
+  const kind = item.valueKind;
+  if (kind === null) return null;
 
   if (field.kind === 'word') {
-    const word = canonicalWord(field, v.text);
+    const word = canonicalWord(field, item.value!.text);
     if (word === null) {
       issues.push(unknownWordIssue(item, field, line));
       return new Stated(section, line, item, null, null, null, null, false, null, false);
@@ -98,18 +99,19 @@ export function readItem(item: ItemNode, section: SectionId, line: number, ctx: 
     return new Stated(section, line, item, null, null, word, null, false, null, true);
   }
 
-  if ((field.kind === 'pair') !== (v.kind === 'pair') || v.kind === 'word') return null; // shape problems are reported by the syntax checks
+  if ((field.kind === 'pair') !== (kind === 'pair') || kind === 'word') return null; // shape problems are reported by the syntax checks
   const canonical = field.unit ? unitById(field.unit) : undefined;
   if (!canonical) return null;
   // A pair's numbers are built when asked for: read them once.
-  const pairParts = v.kind === 'pair' ? v.parts : null;
-  const first = v.kind === 'number' ? v.value : (pairParts?.[0]?.value ?? 0);
+  const pairParts = kind === 'pair' ? (item.value as PairValue).parts : null;
+  const written = kind === 'number' ? item.number! : null;
+  const first = written ?? pairParts?.[0]?.value ?? 0;
 
   // Which unit was the number written in?
   let readUnit: UnitDef | undefined;
   let unitImplied = false;
-  if (item.unit) {
-    const candidates = unitsForSpelling(item.unit.text);
+  if (item.unitText !== null) {
+    const candidates = unitsForSpelling(item.unitText);
     for (const u of candidates) if (field.units?.includes(u.id)) { readUnit = u; break; }
     if (!readUnit) {
       issues.push(candidates.length === 0 ? unknownUnitIssue(item, field, line) : unitNotAllowedIssue(item, field, line, candidates));
@@ -124,17 +126,17 @@ export function readItem(item: ItemNode, section: SectionId, line: number, ctx: 
   let parts: number[] | null = null;
   // An impossible value feeds no calculation (the bounds checks report it).
   let usable = true;
-  if (v.kind === 'number') {
-    value = convert(v.value, readUnit, canonical);
+  if (written !== null) {
+    value = convert(written, readUnit, canonical);
     if (value === null) return null;
     if (field.hard && !within(value, field.hard)) usable = false;
   } else {
     // Of its exact length: an array grown by push keeps room for 17 numbers, and a big note keeps
     // thousands of these.
-    const written = pairParts ?? [];
-    parts = new Array<number>(written.length);
-    for (let k = 0; k < written.length; k++) {
-      const c = convert(written[k]!.value, readUnit, canonical);
+    const numbers = pairParts ?? [];
+    parts = new Array<number>(numbers.length);
+    for (let k = 0; k < numbers.length; k++) {
+      const c = convert(numbers[k]!.value, readUnit, canonical);
       if (c === null) return null;
       if (field.hard && !within(c, field.hard)) usable = false;
       parts[k] = c;
@@ -142,8 +144,8 @@ export function readItem(item: ItemNode, section: SectionId, line: number, ctx: 
   }
 
   let unitDoubt: string | null = null;
-  if (unitImplied && value !== null && v.kind === 'number') {
-    const likely = otherUnitLikely(field, value, v.value, readUnit, canonical, ctx);
+  if (unitImplied && value !== null && written !== null) {
+    const likely = otherUnitLikely(field, value, written, readUnit, canonical, ctx);
     if (likely) {
       usable = false;
       unitDoubt = likely.id;

@@ -34,7 +34,9 @@ function scanLines(lines: readonly LineNode[], start: number, end: number): read
   for (let i = start; i < end && i < lines.length; i++) {
     const node = lines[i]!;
     if (node.kind === 'blank' && !node.comment) continue;
-    for (const match of scanLine(node)) (found ??= []).push({ line: node.line, match });
+    const matches = scanLine(node);
+    // Indexed loops: these run for every line and every check, and most lists are empty.
+    for (let k = 0; k < matches.length; k++) (found ??= []).push({ line: node.line, match: matches[k]! });
   }
   return found ?? NONE;
 }
@@ -60,7 +62,8 @@ const TIMEPOINT_MATCHES: Kept<readonly LineMatch[], TimepointContext> = {
  */
 function privacyCheck(code: string, alias: string, kind: PrivacyKind, title: string, doc: CheckDoc, message: (m: PrivacyMatch) => string): CheckDef {
   const report = (ctx: CheckContext, matches: readonly LineMatch[]) => {
-    for (const { line, match: m } of matches) {
+    for (let k = 0; k < matches.length; k++) {
+      const { line, match: m } = matches[k]!;
       if (m.kind !== kind) continue;
       ctx.report({ range: toRange(line, m.span), message: message(m), fixes: [placeholderFix(line, m)] });
     }

@@ -80,12 +80,12 @@ function maskReadings(text: string, bodyEnd: number, node: Extract<LineNode, { k
 
 /** A reading: a known key with a number or pair value, or with a word the field lists (`mode VC`). */
 function isReading(item: ItemNode): boolean {
-  const value = item.value;
-  if (!value) return false;
-  if (item.implied !== null && value.kind !== 'word') return true;
+  const kind = item.valueKind;
+  if (kind === null) return false;
+  if (item.implied !== null && kind !== 'word') return true;
   const field = item.field;
   if (!field) return false;
-  return value.kind !== 'word' || field.words?.[value.text.toLowerCase()] !== undefined;
+  return kind !== 'word' || field.words?.[item.value!.text.toLowerCase()] !== undefined;
 }
 
 /** Whether `text[from, to)` holds anything but blanks, commas and slashes (the slashes of a shorthand gas). */

@@ -454,7 +454,7 @@ class Item implements ItemNode, Span {
   private readonly numStart: number;
   private readonly numEnd: number;
   private readonly numComma: boolean;
-  private readonly unitText: string | null;
+  readonly unitText: string | null;
   private readonly unitStart: number;
 
   constructor(
@@ -494,6 +494,14 @@ class Item implements ItemNode, Span {
   hasDecimalComma(): boolean {
     if (this.other instanceof PairNode) return this.other.hasDecimalComma();
     return this.numComma;
+  }
+
+  get valueKind(): ValueNode['kind'] | null {
+    return this.other !== null ? this.other.kind : this.num === null ? null : 'number';
+  }
+
+  get number(): number | null {
+    return this.num;
   }
 
   get value(): ValueNode | null {

@@ -56,6 +56,12 @@ export interface ItemNode {
   readonly value: ValueNode | null;
   readonly unit: Token | null;
   readonly span: Span;
+  /** The kind of `value`, null for none (read without building the value). */
+  readonly valueKind: ValueNode['kind'] | null;
+  /** The number of a number value, null otherwise (read without building the value). */
+  readonly number: number | null;
+  /** The text of `unit`, null for none (read without building the token). */
+  readonly unitText: string | null;
 }
 
 /** A problem the parser found, reported by the syntax checks under the check's alias. */
