@@ -271,7 +271,8 @@ describe('robustness', () => {
   it('drops the steps left when a big note changes while it is read, and answers the newest version only', async () => {
     const path = join(process.cwd(), 'big-changed-while-read.pneu');
     const uri = pathToFileURL(path).toString();
-    const first = generateNote(3000);
+    // Big enough that the change always lands while the note is still being read, however fast the machine.
+    const first = generateNote(10000);
     const configured = client.configured(uri);
     client.open(path, first);
     await configured;
@@ -289,7 +290,7 @@ describe('robustness', () => {
     const path = join(process.cwd(), 'big-closed-while-read.pneu');
     const uri = pathToFileURL(path).toString();
     const configured = client.configured(uri);
-    client.open(path, generateNote(3000));
+    client.open(path, generateNote(10000)); // big enough to be still read when the close arrives
     await configured;
     void client.connection.sendNotification('textDocument/didClose', { textDocument: { uri } });
     const cleared = await client.diagnostics(uri, (d) => d.diagnostics.length === 0);

@@ -78,6 +78,20 @@ export interface NumberParts {
  * comma followed by digits (or a leading point: `.5`).
  */
 export function leadingNumber(text: string, at = 0): NumberParts {
+  const length = scanNumber(text, at);
+  return length === 0 ? NO_NUMBER : { length, value: compact(SCANNED.value), decimalComma: SCANNED.decimalComma };
+}
+
+const NO_NUMBER: NumberParts = Object.freeze({ length: 0, value: NaN, decimalComma: false });
+
+/**
+ * What `scanNumber` read last: one object for every scan rather than one per number (a big note
+ * has tens of thousands). Valid until the next scan: read it right after the call.
+ */
+export const SCANNED: { value: number; decimalComma: boolean } = { value: 0, decimalComma: false };
+
+/** `leadingNumber` without an object per call: the length (0: no number), the rest in SCANNED. */
+export function scanNumber(text: string, at = 0): number {
   let i = at;
   const n = text.length;
   if (i < n && (text[i] === '-' || text[i] === '+' || text[i] === '−')) i++;
@@ -90,11 +104,13 @@ export function leadingNumber(text: string, at = 0): NumberParts {
     i++;
     while (i < n && isDigit(text.charCodeAt(i))) i++;
   } else if (intDigits === 0) {
-    return { length: 0, value: NaN, decimalComma: false };
+    return 0;
   }
   const value = numberValue(text, at, intStart, i);
-  if (!Number.isFinite(value)) return { length: 0, value: NaN, decimalComma: false };
-  return { length: i - at, value, decimalComma };
+  if (!Number.isFinite(value)) return 0;
+  SCANNED.value = value;
+  SCANNED.decimalComma = decimalComma;
+  return i - at;
 }
 
 const POWERS_OF_TEN = [1, 10, 100, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15];

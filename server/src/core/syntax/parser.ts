@@ -7,7 +7,7 @@ import { fieldFor, FIELDS, type FieldDef } from '../fields/registry';
 import { SECTIONS, sectionByName, type SectionId } from '../fields/sections';
 import { isKnownUnitSpelling, UNITS } from '../fields/units';
 import { closest } from '../util/suggest';
-import { Chunk, chunkLine, isDigit, leadingNumber } from './lexer';
+import { Chunk, chunkLine, isDigit, leadingNumber, scanNumber, SCANNED } from './lexer';
 import type {
   ItemNode,
   LineFix,
@@ -351,24 +351,22 @@ class NumberNode extends Cut implements NumberValue {
   }
 }
 
-interface ChunkValue {
-  readonly value: ValueNode | null;
-  /** A unit written glued to the number (`89%`, `38.4C`). */
-  readonly gluedUnit: Token | null;
+/**
+ * Reads a chunk as a number, possibly with a unit glued to it (`89%`, `38.4C`): the number's
+ * length, 0 when the chunk is no number (or the start of a pair, `120/80`). The value and its
+ * comma are left in SCANNED (no object per number); read them before scanning again.
+ */
+function numberChunk(chunk: Chunk): number {
+  const text = chunk.text;
+  const length = scanNumber(text);
+  if (length === 0 || length === text.length) return length;
+  if (text.indexOf('/', length) >= 0 && isDigit(text.charCodeAt(length + 1))) return 0;
+  return length;
 }
 
-const NOT_A_NUMBER: ChunkValue = Object.freeze({ value: null, gluedUnit: null });
-
-/** `source` is the text of the line the chunk is on. */
-function readNumberChunk(chunk: Chunk, source: string): ChunkValue {
-  const num = leadingNumber(chunk.text);
-  if (num.length === 0) return NOT_A_NUMBER;
-  const whole = num.length === chunk.text.length;
-  const value = new NumberNode(source, num.value, chunk.start, chunk.start + num.length, num.decimalComma);
-  if (whole) return { value, gluedUnit: null };
-  const suffix = chunk.text.slice(num.length);
-  if (suffix.includes('/') && isDigit(suffix.charCodeAt(1))) return NOT_A_NUMBER;
-  return { value, gluedUnit: token(suffix, value.end, chunk.end) };
+/** The unit glued to a number of `length` at the start of `chunk`, if any. */
+function gluedUnit(chunk: Chunk, length: number): Token | null {
+  return length === chunk.text.length ? null : token(chunk.text.slice(length), chunk.start + length, chunk.end);
 }
 
 function readSlashGroup(chunk: Chunk, source: string): PairNode | null {
@@ -462,26 +460,22 @@ class Item implements ItemNode, Span {
     readonly keyName: string,
     readonly implied: ItemNode['implied'],
     readonly field: FieldDef | null,
-    value: ValueNode | null,
+    other: PairValue | WordValue | null,
+    source: string,
+    num: number | null,
+    numStart: number,
+    numEnd: number,
+    numComma: boolean,
     unit: Token | null,
     readonly start: number,
     readonly end: number,
   ) {
-    if (value instanceof NumberNode) {
-      this.other = null;
-      this.source = value.source;
-      this.num = compact(value.value);
-      this.numStart = value.start;
-      this.numEnd = value.end;
-      this.numComma = value.decimalComma;
-    } else {
-      this.other = value?.kind === 'number' ? null : value;
-      this.source = '';
-      this.num = null;
-      this.numStart = 0;
-      this.numEnd = 0;
-      this.numComma = false;
-    }
+    this.other = other;
+    this.source = source;
+    this.num = num === null ? null : compact(num);
+    this.numStart = numStart;
+    this.numEnd = numEnd;
+    this.numComma = numComma;
     this.unitText = unit?.text ?? null;
     this.unitStart = unit?.span.start ?? 0;
   }
@@ -518,6 +512,16 @@ class Item implements ItemNode, Span {
   }
 }
 
+/** An item whose value is a pair, a word or nothing. */
+function otherItem(keyText: string | null, keyName: string, implied: ItemNode['implied'], field: FieldDef | null, value: PairValue | WordValue | null, unit: Token | null, start: number, end: number): Item {
+  return new Item(keyText, keyName, implied, field, value, '', null, 0, 0, false, unit, start, end);
+}
+
+/** An item whose value is the number `value` written at `[numStart, numEnd)` of `source`. */
+function numberItem(keyText: string | null, keyName: string, implied: ItemNode['implied'], field: FieldDef | null, source: string, value: number, numStart: number, numEnd: number, comma: boolean, unit: Token | null, start: number): Item {
+  return new Item(keyText, keyName, implied, field, null, source, value, numStart, numEnd, comma, unit, start, unit ? unit.span.end : numEnd);
+}
+
 const SHORTHAND_KEYS = ['ph', 'pco2', 'po2', 'hco3'] as const;
 
 function isKey(section: SectionId, text: string): boolean {
@@ -548,11 +552,11 @@ function parseItems(section: SectionId, chunks: readonly Chunk[], start: number,
     if (glued) return glued;
     const next = chunks[i];
     if (!next || next.afterComma) return null;
-    if (leadingNumber(next.text).length > 0) return null;
+    if (scanNumber(next.text) > 0) return null;
     if (isKnownUnitSpelling(next.text)) { i++; return next; }
     if (isKey(section, next.text)) return null;
     const after = chunks[i + 1];
-    if (after && !after.afterComma && leadingNumber(after.text).length > 0) return null;
+    if (after && !after.afterComma && scanNumber(after.text) > 0) return null;
     // Something unit-like we do not know: keep it as the unit so the unit check can name it.
     if (next.text.length <= 12) { i++; return next; }
     return null;
@@ -570,7 +574,7 @@ function parseItems(section: SectionId, chunks: readonly Chunk[], start: number,
         group.parts.forEach((part, k) => {
           const keyName = SHORTHAND_KEYS[k]!;
           const isPressure = keyName === 'pco2' || keyName === 'po2';
-          items.push(new Item(null, keyName, 'shorthand', fieldFor(section, keyName) ?? null, part, isPressure ? unit : null, part.span.start, part.span.end));
+          items.push(new Item(null, keyName, 'shorthand', fieldFor(section, keyName) ?? null, null, source, part.value, part.span.start, part.span.end, part.decimalComma, isPressure ? unit : null, part.span.start, part.span.end));
         });
       }
     }
@@ -582,15 +586,17 @@ function parseItems(section: SectionId, chunks: readonly Chunk[], start: number,
     if (dev) {
       i = start + dev.used;
       const value: WordValue = { kind: 'word', text: dev.text, span: dev.span };
-      items.push(new Item(null, 'device', 'device', fieldFor(section, 'device') ?? null, value, null, dev.span.start, dev.span.end));
+      items.push(otherItem(null, 'device', 'device', fieldFor(section, 'device') ?? null, value, null, dev.span.start, dev.span.end));
       const next = chunks[i];
       if (next && !next.afterComma) {
-        const num = readNumberChunk(next, source);
-        if (num.value && num.value.kind === 'number') {
+        const length = numberChunk(next);
+        if (length > 0) {
+          const number = SCANNED.value;
+          const comma = SCANNED.decimalComma;
           i++;
-          const unit = takeUnit(num.gluedUnit);
+          const unit = takeUnit(gluedUnit(next, length));
           const keyName = dev.text.toLowerCase() === 'cpap' ? 'level' : 'flow';
-          items.push(new Item(null, keyName, 'device-flow', fieldFor(section, keyName) ?? null, num.value, unit, num.value.span.start, (unit ?? num.value).span.end));
+          items.push(numberItem(null, keyName, 'device-flow', fieldFor(section, keyName) ?? null, source, number, next.start, next.start + length, comma, unit, next.start));
         }
       }
     }
@@ -598,19 +604,17 @@ function parseItems(section: SectionId, chunks: readonly Chunk[], start: number,
 
   while (i < n) {
     const chunk = chunks[i]!;
-    const asNumber = readNumberChunk(chunk, source);
-    const asGroup = readSlashGroup(chunk, source);
-    if (asNumber.value || asGroup) {
+    if (numberChunk(chunk) > 0 || readSlashGroup(chunk, source)) {
       issues.push({ check: 'stray-text', span: chunk.span, message: `\`${chunk.text}\` has no key; write it as \`key value\`, e.g. \`hr 118\`.`, fixes: [] });
       i++;
       continue;
     }
     const key = chunk;
     const keyName = chunk.text.toLowerCase();
-    const field = fieldFor(section, chunk.text);
+    const field = fieldFor(section, chunk.text) ?? null;
     i++;
     const next = chunks[i];
-    let value: ValueNode | null = null;
+    let value: PairValue | WordValue | null = null;
     let unit: Token | null = null;
     if (next && !next.afterComma) {
       if (field?.kind === 'word') {
@@ -628,15 +632,18 @@ function parseItems(section: SectionId, chunks: readonly Chunk[], start: number,
         }
       } else {
         const group = readSlashGroup(next, source);
-        const num = group ? null : readNumberChunk(next, source);
+        const length = group ? 0 : numberChunk(next);
         if (group) {
           value = group;
           i++;
           unit = takeUnit(null);
-        } else if (num?.value) {
-          value = num.value;
+        } else if (length > 0) {
+          const number = SCANNED.value;
+          const comma = SCANNED.decimalComma;
           i++;
-          unit = takeUnit(num.gluedUnit);
+          unit = takeUnit(gluedUnit(next, length));
+          items.push(numberItem(key.text, keyName, null, field, source, number, next.start, next.start + length, comma, unit, key.start));
+          continue;
         }
       }
     }
@@ -644,7 +651,7 @@ function parseItems(section: SectionId, chunks: readonly Chunk[], start: number,
       issues.push({ check: 'missing-value', span: key.span, message: `\`${key.text}\` has no value.`, fixes: [] });
     }
     const end = (unit ?? value ?? key).span.end;
-    items.push(new Item(key.text, keyName, null, field ?? null, value, unit, key.start, end));
+    items.push(otherItem(key.text, keyName, null, field, value, unit, key.start, end));
   }
 
   // Decimal commas anywhere in the line's numbers (few lines have one: asked of each item without building its number).
