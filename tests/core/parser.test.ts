@@ -177,6 +177,14 @@ describe('section lines', () => {
     expect(at(text, section(text).issues[0]?.span)).toBe('1/2/3/4/5');
   });
 
+  it('keeps a key as written and names it in lower case; implied keys have no written key', () => {
+    const keyed = section('vitals HR 80, Spo2 97 %').items;
+    expect(keyed.map((i) => [i.key?.text, i.keyName, i.implied])).toEqual([['HR', 'hr', null], ['Spo2', 'spo2', null]]);
+    const implied = section('oxygen cannula 2 L/min').items;
+    expect(implied.map((i) => [i.key, i.keyName, i.implied])).toEqual([[null, 'device', 'device'], [null, 'flow', 'device-flow']]);
+    expect(section('abg 7,31/52').items.map((i) => [i.keyName, i.implied, (i.value?.kind === 'number' && i.value.decimalComma)])).toEqual([['ph', 'shorthand', true], ['pco2', 'shorthand', false]]);
+  });
+
   it('reports a key without a value and a value without a key', () => {
     expect(section('vitals hr, rr 12').issues.map((i) => i.check)).toEqual(['missing-value']);
     expect(section('vitals hr 80 90').issues.map((i) => i.check)).toEqual(['stray-text']);

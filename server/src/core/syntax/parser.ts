@@ -429,6 +429,11 @@ class PairNode extends Cut implements PairValue {
   }
 }
 
+/** What implies an item's key (index 0: the key is written), and the flag of a decimal comma, kept in one number. */
+const IMPLIED: readonly ItemNode['implied'][] = [null, 'shorthand', 'device', 'device-flow'];
+const IMPLIED_MASK = 3;
+const DECIMAL_COMMA = 4;
+
 /**
  * An item: `key value [unit]`, or a value whose key is implied by its place (a shorthand gas part,
  * an oxygen device and its flow). Every item is of this one class (so code that reads items sees
@@ -440,25 +445,28 @@ class PairNode extends Cut implements PairValue {
  * the number when asked; a pair or a word value is kept as it is. One object per item instead of three.
  */
 class Item implements ItemNode, Span {
+  /** The key as written, or for an implied key the key it stands for (see `flags`). */
+  private readonly name: string;
+  /** What implied the key (an index into IMPLIED, 0: written), plus DECIMAL_COMMA. */
+  private readonly flags: number;
   /** A pair or word value; null for a number value (kept flat below) or no value. */
   private readonly other: PairValue | WordValue | null;
   /**
-   * The line the number is on, its value (null: no number value), where it is, and how it was
-   * written. `num` may hold null, so a whole number is kept in the item itself rather than in a
-   * box of its own (as a field that only ever holds numbers would keep it).
+   * The line the number is on, its value (null: no number value) and where it is. `num` may hold
+   * null, so a whole number is kept in the item itself rather than in a box of its own (as a field
+   * that only ever holds numbers would keep it).
    */
   private readonly source: string;
   private readonly num: number | null;
   private readonly numStart: number;
   private readonly numEnd: number;
-  private readonly numComma: boolean;
   readonly unitText: string | null;
   private readonly unitStart: number;
 
   constructor(
-    private readonly keyText: string | null,
-    readonly keyName: string,
-    readonly implied: ItemNode['implied'],
+    keyText: string | null,
+    keyName: string,
+    implied: ItemNode['implied'],
     readonly field: FieldDef | null,
     other: PairValue | WordValue | null,
     source: string,
@@ -470,14 +478,32 @@ class Item implements ItemNode, Span {
     readonly start: number,
     readonly end: number,
   ) {
+    this.name = implied === null && keyText !== null ? keyText : keyName;
+    this.flags = IMPLIED.indexOf(implied) | (numComma ? DECIMAL_COMMA : 0);
     this.other = other;
     this.source = source;
     this.num = num === null ? null : compact(num);
     this.numStart = numStart;
     this.numEnd = numEnd;
-    this.numComma = numComma;
     this.unitText = unit?.text ?? null;
     this.unitStart = unit?.span.start ?? 0;
+  }
+
+  get implied(): ItemNode['implied'] {
+    return IMPLIED[this.flags & IMPLIED_MASK]!;
+  }
+
+  /** The key as written (null when implied). */
+  private get keyText(): string | null {
+    return (this.flags & IMPLIED_MASK) === 0 ? this.name : null;
+  }
+
+  get keyName(): string {
+    return (this.flags & IMPLIED_MASK) === 0 ? this.name.toLowerCase() : this.name;
+  }
+
+  private get numComma(): boolean {
+    return (this.flags & DECIMAL_COMMA) !== 0;
   }
 
   get key(): Token | null {
