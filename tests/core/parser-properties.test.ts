@@ -6,6 +6,7 @@ import { checkNote } from '../../server/src/core/check-note';
 import { leadingNumber } from '../../server/src/core/syntax/lexer';
 import { parseNote, splitLines } from '../../server/src/core/syntax/parser';
 import type { Range } from '../../server/src/core/types';
+import type { LineNode, ValueNode } from '../../server/src/core/syntax/tree';
 import { anyText, nearlyValidNote } from '../helpers/arbitraries';
 
 export const PROPERTY_RUNS = 600;
@@ -106,5 +107,35 @@ describe('number reading', () => {
     for (const [text, value] of [['7.28', 7.28], ['0.1', 0.1], ['-0.35', -0.35], ['37,8', 37.8], ['123456789012345678', 123456789012345678], ['.5', 0.5], ['−3', -3]] as const) {
       expect(leadingNumber(text).value).toBe(value);
     }
+  });
+});
+
+/** Everything a line node says, read through its getters (spans, texts, values, issues). */
+function snapshotOf(node: LineNode): unknown {
+  const span = (s: { start: number; end: number } | undefined) => (s ? [s.start, s.end] : null);
+  const tok = (t: { text: string; span: { start: number; end: number } } | null | undefined) => (t ? [t.text, span(t.span)] : null);
+  const value = (v: ValueNode | null) => v && [v.kind, v.text, span(v.span), v.kind === 'number' ? [v.value, v.decimalComma] : v.kind === 'pair' ? v.parts.map((p) => [p.value, p.text, span(p.span)]) : null];
+  const base = [node.kind, node.line, node.text, tok(node.comment), node.issues.map((i) => [i.check, span(i.span), i.message, i.fixes.map((f) => [f.title, f.edits.map((e) => [span(e.span), e.newText])])])];
+  switch (node.kind) {
+    case 'blank': return base;
+    case 'timepoint': return [...base, tok(node.marker), node.time && [node.time.kind, node.time.day, node.time.minutes, node.time.text, span(node.time.span)], tok(node.label)];
+    case 'unknown': return [...base, tok(node.first), tok(node.rest)];
+    case 'section': return [...base, node.section, tok(node.sectionToken), tok(node.prose), node.items.map((i) => [i.keyName, i.implied, tok(i.key), value(i.value), tok(i.unit), span(i.span), i.field?.id ?? null])];
+  }
+}
+
+describe('parser: trees stay as parsed', () => {
+  it(`keeps a tree unchanged while other notes are parsed after it (the lexer reuses its words) (${PROPERTY_RUNS} generated pairs)`, () => {
+    fc.assert(
+      fc.property(fc.oneof(anyText, nearlyValidNote), fc.oneof(anyText, nearlyValidNote), (a, b) => {
+        const tree = parseNote(a);
+        const before = tree.lines.map(snapshotOf);
+        parseNote(b);
+        parseNote(a.split('').reverse().join(''));
+        expect(tree.lines.map(snapshotOf)).toEqual(before);
+        expect(before).toEqual(parseNote(a).lines.map(snapshotOf));
+      }),
+      { numRuns: PROPERTY_RUNS },
+    );
   });
 });

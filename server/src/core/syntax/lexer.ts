@@ -36,11 +36,35 @@ export function isDigit(code: number): boolean {
 }
 
 /**
- * `intern` may swap a chunk's text for an equal string kept elsewhere (the words of the format:
- * section names, keys, units), so a big note does not hold a copy of `hr` per line.
+ * A chunk as the parser reads it. The lexer reuses words from line to line (a big note has one
+ * per word, and the tree keeps few), so a word holds only until the next line is cut: what the
+ * tree keeps is copied out of it. `span` gives a new span at each read, never the word itself.
  */
-export function chunkLine(body: string, from = 0, intern?: (text: string) => string): Chunk[] {
-  const chunks: Chunk[] = [];
+export class Word {
+  constructor(
+    public text = '',
+    public start = 0,
+    public end = 0,
+    /** A comma separated this word from the previous one. */
+    public afterComma = false,
+  ) {}
+
+  get span(): Span {
+    return { start: this.start, end: this.end };
+  }
+}
+
+/** Words reused from line to line, by their place in the line; a line longer than this gets words of its own beyond it. */
+const POOL: Word[] = [];
+const POOL_LIMIT = 4096;
+
+/**
+ * The words of a line body, in a new list of reused words (see `Word`): valid until the next call.
+ * `intern` may swap a word's text for an equal string kept elsewhere (the words of the format:
+ * section names, keys, units), so the tree does not hold a copy of `hr` per line.
+ */
+export function wordsOf(body: string, from = 0, intern?: (text: string) => string): Word[] {
+  const words: Word[] = [];
   let i = from;
   let sawComma = false;
   const n = body.length;
@@ -60,10 +84,30 @@ export function chunkLine(body: string, from = 0, intern?: (text: string) => str
       i++;
     }
     const text = body.slice(start, i);
-    chunks.push(new Chunk(intern ? intern(text) : text, start, i, sawComma));
+    const k = words.length;
+    let word: Word;
+    if (k < POOL_LIMIT) {
+      word = POOL[k] ?? (POOL[k] = new Word());
+      word.text = intern ? intern(text) : text;
+      word.start = start;
+      word.end = i;
+      word.afterComma = sawComma;
+    } else {
+      word = new Word(intern ? intern(text) : text, start, i, sawComma);
+    }
+    words.push(word);
     sawComma = false;
   }
-  return chunks;
+  return words;
+}
+
+/**
+ * Splits one line body into chunks of their own (kept as long as the caller likes, unlike the
+ * words of `wordsOf`): runs of characters that are not blanks or separating commas. A comma
+ * between two digits stays inside its chunk (a decimal comma, reported later).
+ */
+export function chunkLine(body: string, from = 0): Chunk[] {
+  return wordsOf(body, from).map((w) => new Chunk(w.text, w.start, w.end, w.afterComma));
 }
 
 export interface NumberParts {

@@ -7,7 +7,7 @@ import { fieldFor, FIELDS, type FieldDef } from '../fields/registry';
 import { SECTIONS, sectionByName, type SectionId } from '../fields/sections';
 import { isKnownUnitSpelling, UNITS } from '../fields/units';
 import { closest } from '../util/suggest';
-import { Chunk, chunkLine, isDigit, leadingNumber, scanNumber, SCANNED } from './lexer';
+import { Chunk, isDigit, leadingNumber, scanNumber, SCANNED, wordsOf, Word } from './lexer';
 import type {
   ItemNode,
   LineFix,
@@ -72,7 +72,7 @@ export function parseNote(text: string): NoteTree {
   return { lines: nodes, eol };
 }
 
-/** The words of the format, kept once (see chunkLine's `intern`). */
+/** The words of the format, kept once (see wordsOf's `intern`). */
 const VOCABULARY: ReadonlyMap<string, string> = (() => {
   const words = new Map<string, string>();
   const add = (w: string) => { words.set(w, w); };
@@ -98,8 +98,8 @@ const LINE_START_TOKENS = new Map<string, Chunk>();
  * The token of a chunk, shared when it is a word of the format at the start of its line: tokens
  * never change, and a big note has thousands of lines that start with the same few words.
  */
-function lineStartToken(chunk: Chunk): Chunk {
-  if (chunk.start !== 0 || VOCABULARY.get(chunk.text) !== chunk.text) return chunk;
+function lineStartToken(chunk: Word): Chunk {
+  if (chunk.start !== 0 || VOCABULARY.get(chunk.text) !== chunk.text) return keep(chunk);
   let shared = LINE_START_TOKENS.get(chunk.text);
   if (!shared) {
     shared = Object.freeze(token(chunk.text, 0, chunk.end));
@@ -123,25 +123,25 @@ function parseLineUnsafe(text: string, line: number): LineNode {
   const bodyEnd = hash >= 0 ? hash : text.length;
   const comment: Token | null = hash >= 0 ? token(text.slice(hash), hash, text.length) : null;
   const body = hash >= 0 ? text.slice(0, bodyEnd) : text;
-  const chunks = chunkLine(body, 0, intern);
+  const chunks = wordsOf(body, 0, intern);
   const first = chunks[0];
   if (!first) return { kind: 'blank', line, text, comment, issues: NONE };
 
   if (first.text.charCodeAt(0) === 0x40 /* @ */) return parseTimepoint(body, chunks, line, text, comment);
 
   const section = sectionByName(first.text);
-  // A chunk is a token (its text and span); it is kept as one rather than copied, and a section
-  // word at the start of its line is one token shared by every such line.
-  const sectionToken: Token = section ? lineStartToken(first) : first;
+  // The words of a line are reused for the next line: what the tree keeps is copied (`keep`), and a
+  // section word at the start of its line is one token shared by every such line.
+  const sectionToken: Token = section ? lineStartToken(first) : keep(first);
   if (!section) {
-    const restStart = chunks[1]?.span.start;
+    const restStart = chunks[1]?.start;
     const restText = restStart === undefined ? '' : body.slice(restStart).trimEnd();
     const rest: Token | null = restStart === undefined ? null : token(restText, restStart, restStart + restText.length);
     return { kind: 'unknown', line, text, comment, first: sectionToken, rest, issues: [unknownSectionIssue(first)] };
   }
   if (section.id === 'note') {
-    const proseStart = chunks[1]?.span.start;
-    const proseEnd = chunks[chunks.length - 1]?.span.end ?? first.span.end;
+    const proseStart = chunks[1]?.start;
+    const proseEnd = chunks[chunks.length - 1]?.end ?? first.end;
     const prose: Token | null = proseStart === undefined ? null : new CutToken(body, proseStart, proseEnd);
     return { kind: 'section', line, text, comment, section: section.id, sectionToken, items: NONE, prose, issues: NONE };
   }
@@ -150,7 +150,7 @@ function parseLineUnsafe(text: string, line: number): LineNode {
   return { kind: 'section', line, text, comment, section: section.id, sectionToken, items, prose: null, issues: issues.length === 0 ? NONE : issues };
 }
 
-function unknownSectionIssue(first: Chunk): SyntaxIssue {
+function unknownSectionIssue(first: Word): SyntaxIssue {
   const word = first.text.toLowerCase();
   const fixes: LineFix[] = closest(word, SECTIONS.map((s) => s.id)).map((s) => ({
     title: `Change to \`${s}\``,
@@ -162,7 +162,7 @@ function unknownSectionIssue(first: Chunk): SyntaxIssue {
     if (fieldFor(id, word)) owners.add(id);
   }
   for (const owner of owners) {
-    fixes.push({ title: `Start the line with \`${owner}\``, edits: [{ span: { start: first.span.start, end: first.span.start }, newText: `${owner} ` }] });
+    fixes.push({ title: `Start the line with \`${owner}\``, edits: [{ span: { start: first.start, end: first.start }, newText: `${owner} ` }] });
   }
   const hint = fixes.length > 0 ? ` Did you mean ${fixes.map((f) => f.title.replace(/^(Change to|Start the line with) /, '')).join(' or ')}?` : '';
   return {
@@ -175,13 +175,13 @@ function unknownSectionIssue(first: Chunk): SyntaxIssue {
 
 // ── timepoints ──────────────────────────────────────────────────────────
 
-function parseTimepoint(body: string, chunks: Chunk[], line: number, text: string, comment: Token | null): LineNode {
+function parseTimepoint(body: string, chunks: Word[], line: number, text: string, comment: Token | null): LineNode {
   const issues: SyntaxIssue[] = [];
   const first = chunks[0]!;
   const marker: Token = first.start === 0 ? MARKER_AT_LINE_START : token('@', first.start, first.start + 1);
   // `@07:40` is read like `@ 07:40`.
-  const rest: Chunk[] = [];
-  if (first.text.length > 1) rest.push(new Chunk(first.text.slice(1), first.start + 1, first.end, false));
+  const rest: Word[] = [];
+  if (first.text.length > 1) rest.push(new Word(first.text.slice(1), first.start + 1, first.end, false));
   for (let k = 1; k < chunks.length; k++) rest.push(chunks[k]!);
 
   let time: TimeSpec | null = null;
@@ -199,14 +199,14 @@ function parseTimepoint(body: string, chunks: Chunk[], line: number, text: strin
       const c2 = rest[2];
       const clock = c2 ? readClock(c2.text) : null;
       if (c2 && clock !== null) {
-        time = new TimeNode('clock', compact(dayNum.value), clock, body, c0.span.start, c2.span.end);
+        time = new TimeNode('clock', compact(dayNum.value), clock, body, c0.start, c2.end);
         used = 3;
       } else {
         if (c2 && looksLikeClock(c2.text)) {
           issues.push({ check: 'bad-time', span: c2.span, message: `\`${c2.text}\` is not a time of day (00:00 to 23:59).`, fixes: [] });
           used = 3;
         } else used = 2;
-        time = new TimeNode('day', compact(dayNum.value), null, body, c0.span.start, c1.span.end);
+        time = new TimeNode('day', compact(dayNum.value), null, body, c0.start, c1.end);
       }
     }
   } else if (c0.text.startsWith('+')) {
@@ -215,13 +215,13 @@ function parseTimepoint(body: string, chunks: Chunk[], line: number, text: strin
     if (minutes === null) {
       issues.push({ check: 'bad-time', span: c0.span, message: `\`${c0.text}\` is not an offset; write it like \`+2h30\`, \`+45m\` or \`+1d\`.`, fixes: [] });
     } else {
-      time = new TimeNode('offset', null, compact(minutes), body, c0.span.start, c0.span.end);
+      time = new TimeNode('offset', null, compact(minutes), body, c0.start, c0.end);
     }
   } else {
     const clock = readClock(c0.text);
     used = 1;
     if (clock !== null) {
-      time = new TimeNode('clock', null, clock, body, c0.span.start, c0.span.end);
+      time = new TimeNode('clock', null, clock, body, c0.start, c0.end);
     } else if (looksLikeDate(c0.text)) {
       issues.push({ check: 'bad-time', span: c0.span, message: `\`${c0.text}\` looks like a calendar date; Pneumark notes use relative days instead (\`@ day 2 08:00\`), which keeps dates of care out of shared notes.`, fixes: [] });
     } else if (looksLikeClock(c0.text)) {
@@ -328,6 +328,18 @@ export function readOffset(text: string): number | null {
 
 // ── items ───────────────────────────────────────────────────────────────
 
+/** What the tree keeps of a word (words are reused for the next line): a token of its own. */
+function keep(word: Word): Chunk {
+  return token(word.text, word.start, word.end);
+}
+
+/** A unit as an item reads it: a word of the line, or a unit glued to a number. */
+interface Located {
+  readonly text: string;
+  readonly start: number;
+  readonly end: number;
+}
+
 /** A token that is its own span (one object, not two): a chunk no comma came before. */
 function token(text: string, start: number, end: number): Chunk {
   return new Chunk(text, start, end, false);
@@ -356,7 +368,7 @@ class NumberNode extends Cut implements NumberValue {
  * length, 0 when the chunk is no number (or the start of a pair, `120/80`). The value and its
  * comma are left in SCANNED (no object per number); read them before scanning again.
  */
-function numberChunk(chunk: Chunk): number {
+function numberChunk(chunk: Word): number {
   const text = chunk.text;
   const length = scanNumber(text);
   if (length === 0 || length === text.length) return length;
@@ -365,11 +377,11 @@ function numberChunk(chunk: Chunk): number {
 }
 
 /** The unit glued to a number of `length` at the start of `chunk`, if any. */
-function gluedUnit(chunk: Chunk, length: number): Token | null {
+function gluedUnit(chunk: Word, length: number): Located | null {
   return length === chunk.text.length ? null : token(chunk.text.slice(length), chunk.start + length, chunk.end);
 }
 
-function readSlashGroup(chunk: Chunk, source: string): PairNode | null {
+function readSlashGroup(chunk: Word, source: string): PairNode | null {
   const text = chunk.text;
   let slash = text.indexOf('/');
   if (slash < 0) return null;
@@ -474,7 +486,7 @@ class Item implements ItemNode, Span {
     numStart: number,
     numEnd: number,
     numComma: boolean,
-    unit: Token | null,
+    unit: Located | null,
     readonly start: number,
     readonly end: number,
   ) {
@@ -486,7 +498,7 @@ class Item implements ItemNode, Span {
     this.numStart = numStart;
     this.numEnd = numEnd;
     this.unitText = unit?.text ?? null;
-    this.unitStart = unit?.span.start ?? 0;
+    this.unitStart = unit?.start ?? 0;
   }
 
   get implied(): ItemNode['implied'] {
@@ -539,13 +551,13 @@ class Item implements ItemNode, Span {
 }
 
 /** An item whose value is a pair, a word or nothing. */
-function otherItem(keyText: string | null, keyName: string, implied: ItemNode['implied'], field: FieldDef | null, value: PairValue | WordValue | null, unit: Token | null, start: number, end: number): Item {
+function otherItem(keyText: string | null, keyName: string, implied: ItemNode['implied'], field: FieldDef | null, value: PairValue | WordValue | null, unit: Located | null, start: number, end: number): Item {
   return new Item(keyText, keyName, implied, field, value, '', null, 0, 0, false, unit, start, end);
 }
 
 /** An item whose value is the number `value` written at `[numStart, numEnd)` of `source`. */
-function numberItem(keyText: string | null, keyName: string, implied: ItemNode['implied'], field: FieldDef | null, source: string, value: number, numStart: number, numEnd: number, comma: boolean, unit: Token | null, start: number): Item {
-  return new Item(keyText, keyName, implied, field, null, source, value, numStart, numEnd, comma, unit, start, unit ? unit.span.end : numEnd);
+function numberItem(keyText: string | null, keyName: string, implied: ItemNode['implied'], field: FieldDef | null, source: string, value: number, numStart: number, numEnd: number, comma: boolean, unit: Located | null, start: number): Item {
+  return new Item(keyText, keyName, implied, field, null, source, value, numStart, numEnd, comma, unit, start, unit ? unit.end : numEnd);
 }
 
 const SHORTHAND_KEYS = ['ph', 'pco2', 'po2', 'hco3'] as const;
@@ -554,27 +566,27 @@ function isKey(section: SectionId, text: string): boolean {
   return fieldFor(section, text) !== undefined;
 }
 
-function deviceWordAt(chunks: readonly Chunk[], i: number): { text: string; span: Span; used: number } | null {
+function deviceWordAt(chunks: readonly Word[], i: number): { text: string; span: Span; used: number } | null {
   const c = chunks[i];
   if (!c) return null;
   const device = fieldFor('oxygen', 'device');
   if (!device?.words) return null;
   const next = chunks[i + 1];
   if (c.text.toLowerCase() === 'room' && next && !next.afterComma && next.text.toLowerCase() === 'air') {
-    return { text: `${c.text} ${next.text}`, span: { start: c.span.start, end: next.span.end }, used: 2 };
+    return { text: `${c.text} ${next.text}`, span: { start: c.start, end: next.end }, used: 2 };
   }
   if (device.words[c.text.toLowerCase()] && !isKey('oxygen', c.text)) return { text: c.text, span: c.span, used: 1 };
   return null;
 }
 
 /** `source` is the text of the line (spans and numbers' texts refer to it). */
-function parseItems(section: SectionId, chunks: readonly Chunk[], start: number, issues: SyntaxIssue[], source: string): readonly ItemNode[] {
+function parseItems(section: SectionId, chunks: readonly Word[], start: number, issues: SyntaxIssue[], source: string): readonly ItemNode[] {
   const items: Item[] = [];
   let i = start;
   const n = chunks.length;
 
   /** Reads the unit after a number value at `i` (a glued unit, or the next chunk when it reads as one). */
-  const takeUnit = (glued: Token | null): Token | null => {
+  const takeUnit = (glued: Located | null): Located | null => {
     if (glued) return glued;
     const next = chunks[i];
     if (!next || next.afterComma) return null;
@@ -641,7 +653,7 @@ function parseItems(section: SectionId, chunks: readonly Chunk[], start: number,
     i++;
     const next = chunks[i];
     let value: PairValue | WordValue | null = null;
-    let unit: Token | null = null;
+    let unit: Located | null = null;
     if (next && !next.afterComma) {
       if (field?.kind === 'word') {
         if (!isKey(section, next.text) || (field.words?.[next.text.toLowerCase()] !== undefined)) {
@@ -676,7 +688,7 @@ function parseItems(section: SectionId, chunks: readonly Chunk[], start: number,
     if (!value) {
       issues.push({ check: 'missing-value', span: key.span, message: `\`${key.text}\` has no value.`, fixes: [] });
     }
-    const end = (unit ?? value ?? key).span.end;
+    const end = unit ? unit.end : value ? value.span.end : key.end;
     items.push(otherItem(key.text, keyName, null, field, value, unit, key.start, end));
   }
 
