@@ -3,6 +3,7 @@ import fc from 'fast-check';
 import { nearlyValidNote } from '../helpers/arbitraries';
 import { checkNote } from '../../server/src/core/check-note';
 import type { Timepoint } from '../../server/src/core/analysis/model';
+import { FIELDS } from '../../server/src/core/fields/registry';
 
 function timeline(text: string) {
   return checkNote(text).analysis.timeline;
@@ -175,5 +176,16 @@ describe('values stated twice at one timepoint (PN206)', () => {
     const found = pn206(text);
     expect(found).toHaveLength(repeats - 1);
     expect(found.every((f) => f.related?.[0]?.range.start.character === 7)).toBe(true);
+  });
+});
+
+describe('values in force: where a value came from, asked without building it', () => {
+  it('answers originOf as get(id).origin.kind does, for every field at every timepoint of generated notes', () => {
+    const ids = FIELDS.map((f) => f.id);
+    fc.assert(fc.property(nearlyValidNote, (text) => {
+      for (const tp of timeline(`patient age 60 y\nplace altitude 1200 m\n${text}`).timepoints) {
+        for (const id of ids) expect(tp.values.originOf(id)).toBe(tp.values.get(id)?.origin.kind ?? null);
+      }
+    }), { numRuns: 300 });
   });
 });

@@ -46,6 +46,12 @@ export interface InputValue {
   readonly origin: Origin;
 }
 
+/** The values in force at a timepoint, by field id. */
+export interface ValuesInForce extends ReadonlyMap<string, InputValue> {
+  /** Where the value in force for a field came from (the `kind` of its origin), without building the value; null when none is in force. */
+  originOf(id: string): Origin['kind'] | null;
+}
+
 export interface TimepointTime {
   /** Day number (1-based) when known. */
   readonly day: number | null;
@@ -65,7 +71,7 @@ export interface Timepoint {
   /** Values stated at this timepoint, in order. */
   readonly stated: readonly StatedValue[];
   /** Values in force here by field id: stated here, carried, or from the header. */
-  readonly values: ReadonlyMap<string, InputValue>;
+  readonly values: ValuesInForce;
   /** Barometric pressure in force (stated, or from altitude), mmHg; null when no place is given. */
   readonly barometricMmhg: number | null;
 }

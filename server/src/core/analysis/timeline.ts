@@ -21,7 +21,7 @@ import { SECTIONS, sectionById, type SectionId } from '../fields/sections';
 import type { Settings } from '../settings';
 import type { LineNode, NoteTree, SectionLine, TimepointLine } from '../syntax/tree';
 import { barometricFromAltitude } from './ambient';
-import type { InputValue, Origin, StatedValue, Timepoint, TimepointTime } from './model';
+import type { InputValue, Origin, StatedValue, Timepoint, TimepointTime, ValuesInForce } from './model';
 import type { ReadIssue } from './read-issues';
 import { readItem, type ReadContext } from './read-value';
 import { NONE, pushAll } from '../util/lists';
@@ -367,7 +367,7 @@ function sameHeld(a: Held, b: Held): boolean {
  * stored per value: a read builds the value and its origin when asked, so a big note keeps no
  * map and no origin per timepoint. Iterating builds the full map once (in the order below).
  */
-class ValuesInForce implements ReadonlyMap<string, InputValue> {
+class ValuesAt implements ValuesInForce {
   private full: Map<string, InputValue> | null = null;
 
   constructor(
@@ -385,6 +385,13 @@ class ValuesInForce implements ReadonlyMap<string, InputValue> {
 
   has(id: string): boolean {
     return this.measuredHere(id) !== undefined || this.heldFor(id) !== undefined;
+  }
+
+  originOf(id: string): Origin['kind'] | null {
+    if (this.measuredHere(id)) return 'here';
+    const held = this.heldFor(id);
+    if (!held) return null;
+    return held.timepoint === this.index ? 'here' : held.timepoint < 0 ? 'header' : 'carried';
   }
 
   /** The measurement or reading of a field stated here (the last of them wins). */
@@ -436,7 +443,7 @@ function isHereOnly(s: StatedValue): boolean {
 function freeze(b: { index: number; line: number | null; label: string; startLine: number; time: TimepointTime; stated: StatedValue[] }, endLine: number, state: CarryState, settings: Settings): Timepoint {
   // Kept as long as the timepoint: a copy of its exact length (an array grown by push keeps room to spare).
   const stated = b.stated.slice();
-  const values = new ValuesInForce(b.index, state, stated);
+  const values = new ValuesAt(b.index, state, stated);
   return { index: b.index, line: b.line, label: b.label, startLine: b.startLine, endLine, time: b.time, stated, values, barometricMmhg: barometricInForce(state.place, settings) };
 }
 

@@ -133,7 +133,8 @@ export class DeriveContext {
 
   /** Whether a field is stated at this timepoint (not carried). */
   statedHere(id: string): boolean {
-    return this.input(id)?.origin.kind === 'here';
+    // Asked of the values in force without building the value (most fields asked about are never read).
+    return this.timepoint.values.originOf(id) === 'here';
   }
 
   /** Another derived value, computed once; null when it cannot be computed here. */

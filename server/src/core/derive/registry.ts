@@ -88,7 +88,7 @@ function relevantSlots(tp: Timepoint, ctx: DeriveContext): number {
   for (const s of tp.stated) {
     const slots = ANCHORED.get(s.fieldId);
     if (slots === undefined || (mask & slots) === slots) continue;
-    if (ctx.input(s.fieldId)?.origin.kind === 'here') mask |= slots;
+    if (ctx.statedHere(s.fieldId)) mask |= slots;
   }
   return mask;
 }
