@@ -99,6 +99,7 @@ export function buildTimelineIncremental(tree: NoteTree, settings: Settings, pre
   const readIssues: ReadIssue[] = [];
   let state = START_STATE;
   let reused = 0;
+  const reading: Reading = { context: null };
   for (let b = 0; b < starts.length; b++) {
     const start = starts[b]!;
     const end = b + 1 < starts.length ? starts[b + 1]! : lines.length;
@@ -110,7 +111,7 @@ export function buildTimelineIncremental(tree: NoteTree, settings: Settings, pre
       result = old.result;
       reused++;
     } else {
-      result = processBlock(lines, start, end, index, state, settings, tree, old?.result.stateOut ?? null);
+      result = processBlock(lines, start, end, index, state, settings, tree, old?.result.stateOut ?? null, reading);
     }
     entries.push({ start, index, endLine, stateIn: state, result });
     if (result.timepoint) timepoints.push(result.timepoint);
@@ -118,6 +119,7 @@ export function buildTimelineIncremental(tree: NoteTree, settings: Settings, pre
     for (const issue of result.issues) readIssues.push(issue);
     state = result.stateOut;
   }
+  lineValues.length = 0; // holds nothing of this note once read
   return { timeline: { timepoints, readIssues, header }, cache: { settings, lines, blocks: entries, reused } };
 }
 
@@ -155,7 +157,15 @@ function sameState(a: CarryState, b: CarryState): boolean {
 }
 
 /** Reads the block `lines[start, end)`. */
-function processBlock(lines: readonly LineNode[], start: number, end: number, index: number, stateIn: CarryState, settings: Settings, tree: NoteTree, previousOut: CarryState | null): BlockResult {
+/**
+ * How bare numbers are read (from the gas unit and the place in force), kept from block to block
+ * of one run: few lines change it.
+ */
+interface Reading {
+  context: ReadContextIn | null;
+}
+
+function processBlock(lines: readonly LineNode[], start: number, end: number, index: number, stateIn: CarryState, settings: Settings, tree: NoteTree, previousOut: CarryState | null, reading: Reading): BlockResult {
   const endLine = end - 1;
   const issues: ReadIssue[] = [];
   const header: StatedValue[] = [];
@@ -171,8 +181,7 @@ function processBlock(lines: readonly LineNode[], start: number, end: number, in
     if (time.minutes !== null || time.day !== null) mutable.lastTime = time;
     tp = { index, line: first.line, label: labelOf(first), startLine: first.line, time, stated: [] };
   }
-  // How bare numbers are read: from the gas unit and the place in force, which few lines change.
-  let context: ReadContextIn | null = null;
+  let context = reading.context;
   for (let i = start; i < end; i++) {
     const node = lines[i]!;
     if (node.kind !== 'section') continue;
@@ -182,7 +191,7 @@ function processBlock(lines: readonly LineNode[], start: number, end: number, in
     if (!inHeader && tp === null) {
       tp = { index: 0, line: null, label: 'start', startLine: firstContentLine(tree), time: { day: null, minutes: null }, stated: [] };
     }
-    if (context === null || context.place !== mutable.place || context.gasUnit !== mutable.gasUnit) context = readContext(mutable, settings);
+    if (context === null || context.place !== mutable.place || context.gasUnit !== mutable.gasUnit) context = reading.context = readContext(mutable, settings);
     const stated = readLine(node, context.read, issues);
     const target = inHeader ? header : tp!.stated;
     if (stated.length > 0) duplicates(stated, inHeader ? (seenInHeader ??= new FirstSeen()) : (seenAtTimepoint ??= new FirstSeen()), issues);
@@ -237,14 +246,23 @@ function readContext(state: CarryState, settings: Settings): ReadContextIn {
   return { place: state.place, gasUnit: state.gasUnit, read: { gasUnit, barometricMmhg: barometricInForce(state.place, settings) } };
 }
 
-function readLine(node: SectionLine, context: ReadContext, issues: ReadIssue[]): StatedValue[] {
-  const out: StatedValue[] = [];
+/**
+ * The values of one line, in a list reused for every line (its values are copied to their
+ * timepoint before the next line is read): valid until the next call.
+ */
+function readLine(node: SectionLine, context: ReadContext, issues: ReadIssue[]): readonly StatedValue[] {
+  // A list grown by a very long line is not kept for the rest of the note.
+  if (lineValues.length > 4096) lineValues = [];
+  const out = lineValues;
+  out.length = 0;
   for (const item of node.items) {
     const stated = readItem(item, node.section, node.line, context, issues);
     if (stated) out.push(stated);
   }
   return out;
 }
+
+let lineValues: StatedValue[] = [];
 
 export function barometricInForce(place: ReadonlyMap<string, { stated: StatedValue }>, settings: Settings): number | null {
   const pb = place.get('barometric')?.stated;
@@ -295,23 +313,26 @@ function duplicates(stated: readonly StatedValue[], seen: FirstSeen, issues: Rea
 
 type MutableState = { -readonly [K in keyof CarryState]: CarryState[K] };
 
+/**
+ * `base` with the settings of `stated` held. A line of readings only (`vent plateau 24`) holds
+ * nothing: the held map stays the same object, so the reuse of later timepoints sees no change.
+ */
+function hold(base: HeldMap, stated: readonly StatedValue[], tp: number, label: string): HeldMap {
+  let next: Map<string, Held> | null = null;
+  for (const s of stated) {
+    if (READING_FIELDS.has(s.fieldId)) continue;
+    next ??= new Map(base);
+    next.set(s.fieldId, { stated: s, timepoint: tp, label });
+  }
+  return next ?? base;
+}
+
 function apply(section: SectionId, stated: readonly StatedValue[], tp: number, label: string, state: MutableState): void {
-  // A line of readings only (`vent plateau 24`) holds nothing: the held map stays the same
-  // object, so the reuse of later timepoints sees no change.
-  const hold = (base: HeldMap): HeldMap => {
-    let next: Map<string, Held> | null = null;
-    for (const s of stated) {
-      if (READING_FIELDS.has(s.fieldId)) continue;
-      next ??= new Map(base);
-      next.set(s.fieldId, { stated: s, timepoint: tp, label });
-    }
-    return next ?? base;
-  };
   switch (section) {
-    case 'patient': state.patient = hold(state.patient); break;
-    case 'place': if (stated.length > 0) state.place = hold(EMPTY); break;
+    case 'patient': state.patient = hold(state.patient, stated, tp, label); break;
+    case 'place': if (stated.length > 0) state.place = hold(EMPTY, stated, tp, label); break;
     case 'units': { const g = stated.find((s) => s.fieldId === 'gas_unit'); if (g?.word) state.gasUnit = { stated: g, timepoint: tp, label }; break; }
-    case 'oxygen': state.oxygen = hold(EMPTY); state.vent = EMPTY; break;
+    case 'oxygen': state.oxygen = hold(EMPTY, stated, tp, label); state.vent = EMPTY; break;
     case 'vent': {
       state.oxygen = EMPTY;
       // A new mode starts a new set of settings; PEEP and FiO2 carry across it.
@@ -319,7 +340,7 @@ function apply(section: SectionId, stated: readonly StatedValue[], tp: number, l
       const before = state.vent.get('mode')?.stated.word;
       let base = state.vent;
       if (mode?.word && before && mode.word !== before) base = new Map([...base].filter(([id]) => id === 'peep' || id === 'fio2'));
-      state.vent = hold(base);
+      state.vent = hold(base, stated, tp, label);
       break;
     }
     default: break;
