@@ -385,20 +385,25 @@ function readSlashGroup(chunk: Word, source: string): PairNode | null {
   const text = chunk.text;
   let slash = text.indexOf('/');
   if (slash < 0) return null;
-  // Numbers separated by single slashes, read in place (no split of the chunk).
-  const packed: number[] = [];
+  let count = 1;
+  for (let k = slash; k >= 0; k = text.indexOf('/', k + 1)) count++;
+  // Numbers separated by single slashes, read in place (no split of the chunk), into a list of
+  // its exact length.
+  const packed = new Array<number>(4 * count);
   let from = 0;
-  for (;;) {
+  for (let k = 0; ; k++) {
     const end = slash < 0 ? text.length : slash;
-    const num = leadingNumber(text, from);
-    if (end === from || num.length !== end - from) return null;
+    if (end === from || scanNumber(text, from) !== end - from) return null;
     const start = chunk.start + from;
-    packed.push(num.value, start, start + (end - from), num.decimalComma ? 1 : 0);
+    packed[4 * k] = SCANNED.value;
+    packed[4 * k + 1] = start;
+    packed[4 * k + 2] = start + (end - from);
+    packed[4 * k + 3] = SCANNED.decimalComma ? 1 : 0;
     if (slash < 0) break;
     from = slash + 1;
     slash = text.indexOf('/', from);
   }
-  return new PairNode(source, chunk.start, chunk.end, packed.slice()); // exact length (see parseItems)
+  return new PairNode(source, chunk.start, chunk.end, packed);
 }
 
 /**
@@ -579,26 +584,25 @@ function deviceWordAt(chunks: readonly Word[], i: number): { text: string; span:
   return null;
 }
 
+/** The chunk at `i` when it reads as the unit of the number before it; null when it does not. */
+function unitWordAt(chunks: readonly Word[], i: number, section: SectionId): Word | null {
+  const next = chunks[i];
+  if (!next || next.afterComma) return null;
+  if (scanNumber(next.text) > 0) return null;
+  if (isKnownUnitSpelling(next.text)) return next;
+  if (isKey(section, next.text)) return null;
+  const after = chunks[i + 1];
+  if (after && !after.afterComma && scanNumber(after.text) > 0) return null;
+  // Something unit-like we do not know: keep it as the unit so the unit check can name it.
+  return next.text.length <= 12 ? next : null;
+}
+
 /** `source` is the text of the line (spans and numbers' texts refer to it). */
 function parseItems(section: SectionId, chunks: readonly Word[], start: number, issues: SyntaxIssue[], source: string): readonly ItemNode[] {
   const items: Item[] = [];
   let i = start;
   const n = chunks.length;
 
-  /** Reads the unit after a number value at `i` (a glued unit, or the next chunk when it reads as one). */
-  const takeUnit = (glued: Located | null): Located | null => {
-    if (glued) return glued;
-    const next = chunks[i];
-    if (!next || next.afterComma) return null;
-    if (scanNumber(next.text) > 0) return null;
-    if (isKnownUnitSpelling(next.text)) { i++; return next; }
-    if (isKey(section, next.text)) return null;
-    const after = chunks[i + 1];
-    if (after && !after.afterComma && scanNumber(after.text) > 0) return null;
-    // Something unit-like we do not know: keep it as the unit so the unit check can name it.
-    if (next.text.length <= 12) { i++; return next; }
-    return null;
-  };
 
   // Shorthand gas: abg 7.28/56/71/26 [kPa]
   if ((section === 'abg' || section === 'vbg') && chunks[start]) {
@@ -608,7 +612,8 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
       if (group.count < 2 || group.count > 4) {
         issues.push({ check: 'bad-shorthand', span: { start: group.start, end: group.end }, message: `A shorthand gas has 2 to 4 numbers (pH/PCO2/PO2/HCO3); this one has ${group.count}.`, fixes: [] });
       } else {
-        const unit = takeUnit(null);
+        const unit = unitWordAt(chunks, i, section);
+        if (unit) i++;
         group.parts.forEach((part, k) => {
           const keyName = SHORTHAND_KEYS[k]!;
           const isPressure = keyName === 'pco2' || keyName === 'po2';
@@ -632,7 +637,9 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
           const number = SCANNED.value;
           const comma = SCANNED.decimalComma;
           i++;
-          const unit = takeUnit(gluedUnit(next, length));
+          const glued = gluedUnit(next, length);
+          const unit = glued ?? unitWordAt(chunks, i, section);
+          if (unit !== glued) i++; // the unit is the next chunk
           const keyName = dev.text.toLowerCase() === 'cpap' ? 'level' : 'flow';
           items.push(numberItem(null, keyName, 'device-flow', fieldFor(section, keyName) ?? null, source, number, next.start, next.start + length, comma, unit, next.start));
         }
@@ -674,12 +681,15 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
         if (group) {
           value = group;
           i++;
-          unit = takeUnit(null);
+          unit = unitWordAt(chunks, i, section);
+          if (unit) i++;
         } else if (length > 0) {
           const number = SCANNED.value;
           const comma = SCANNED.decimalComma;
           i++;
-          unit = takeUnit(gluedUnit(next, length));
+          const glued = gluedUnit(next, length);
+          unit = glued ?? unitWordAt(chunks, i, section);
+          if (unit !== glued) i++; // the unit is the next chunk
           items.push(numberItem(key.text, keyName, null, field, source, number, next.start, next.start + length, comma, unit, key.start));
           continue;
         }
