@@ -180,11 +180,15 @@ describe('values stated twice at one timepoint (PN206)', () => {
 });
 
 describe('values in force: where a value came from, asked without building it', () => {
-  it('answers originOf as get(id).origin.kind does, for every field at every timepoint of generated notes', () => {
+  it('answers originOf and numberOf as get(id) does, for every field at every timepoint of generated notes', () => {
     const ids = FIELDS.map((f) => f.id);
     fc.assert(fc.property(nearlyValidNote, (text) => {
       for (const tp of timeline(`patient age 60 y\nplace altitude 1200 m\n${text}`).timepoints) {
-        for (const id of ids) expect(tp.values.originOf(id)).toBe(tp.values.get(id)?.origin.kind ?? null);
+        for (const id of ids) {
+          const v = tp.values.get(id);
+          expect(tp.values.originOf(id)).toBe(v?.origin.kind ?? null);
+          expect(tp.values.numberOf(id)).toBe(v?.stated.usable ? v.stated.value : null);
+        }
       }
     }), { numRuns: 300 });
   });

@@ -50,6 +50,8 @@ export interface InputValue {
 export interface ValuesInForce extends ReadonlyMap<string, InputValue> {
   /** Where the value in force for a field came from (the `kind` of its origin), without building the value; null when none is in force. */
   originOf(id: string): Origin['kind'] | null;
+  /** The usable number in force for a field (canonical unit), without building the value; null when none. */
+  numberOf(id: string): number | null;
 }
 
 export interface TimepointTime {

@@ -408,6 +408,11 @@ class ValuesAt implements ValuesInForce {
     return this.measuredHere(id) !== undefined || this.heldFor(id) !== undefined;
   }
 
+  numberOf(id: string): number | null {
+    const s = this.measuredHere(id) ?? this.heldFor(id)?.stated;
+    return s !== undefined && s.usable ? s.value : null;
+  }
+
   originOf(id: string): Origin['kind'] | null {
     if (this.measuredHere(id)) return 'here';
     const held = this.heldFor(id);

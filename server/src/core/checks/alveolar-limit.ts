@@ -22,6 +22,8 @@ export const pao2AboveAlveolar = defineCheck({
   runTimepoint(ctx) {
     const tp = ctx.timepoint;
     {
+      // Only a PaO2 stated here is compared (asked without building the value).
+      if (tp.values.originOf('pao2') !== 'here') return;
       const alveolar = derivedValueOf(ctx.derivation, 'pao2_alveolar');
       const pao2 = tp.values.get('pao2');
       if (!alveolar || !pao2 || pao2.origin.kind !== 'here' || !pao2.stated.usable || pao2.stated.value === null) return;

@@ -18,6 +18,8 @@ export const gasInconsistent = defineCheck({
   source: `${SOURCES['henderson-hasselbalch']}; tolerance: ${SOURCES['pneumark-consistency-tolerance']}`,
   runTimepoint(ctx) {
     const tp = ctx.timepoint;
+    // Only an HCO3 stated here is checked (asked without building the value).
+    if (tp.values.originOf('hco3') !== 'here') return;
     {
       const ph = tp.values.get('ph');
       const paco2 = tp.values.get('paco2');

@@ -10,6 +10,10 @@ import { defineCheck, type TimepointContext } from './check';
 
 function orderCheck(ctx: TimepointContext, lowId: string, highId: string, message: (low: number, high: number) => string): void {
   const tp = ctx.timepoint;
+  // Most timepoints have the pair in order: compared without building the values.
+  const lowValue = tp.values.numberOf(lowId);
+  const highValue = tp.values.numberOf(highId);
+  if (lowValue === null || highValue === null || lowValue <= highValue) return;
   {
     const low = usableNumber(tp, lowId);
     const high = usableNumber(tp, highId);
@@ -34,6 +38,9 @@ function usableNumber(tp: Timepoint, id: string): { input: InputValue; value: nu
   return { input, value: input.stated.value };
 }
 
+const peepAbovePlateauMessage = (low: number, high: number): string => `PEEP ${formatShort(low)} is above the plateau pressure ${formatShort(high)} cmH2O; plateau pressure includes PEEP.`;
+const plateauAbovePeakMessage = (low: number, high: number): string => `Plateau pressure ${formatShort(low)} is above the peak pressure ${formatShort(high)} cmH2O; were they swapped?`;
+
 export const peepAbovePlateau = defineCheck({
   code: 'PN303',
   alias: 'peep-above-plateau',
@@ -47,7 +54,7 @@ export const peepAbovePlateau = defineCheck({
   },
   source: 'respiratory mechanics: plateau pressure is measured above atmospheric and includes PEEP (common practice, no source)',
   runTimepoint(ctx) {
-    orderCheck(ctx, 'peep', 'plateau', (low, high) => `PEEP ${formatShort(low)} is above the plateau pressure ${formatShort(high)} cmH2O; plateau pressure includes PEEP.`);
+    orderCheck(ctx, 'peep', 'plateau', peepAbovePlateauMessage);
   },
 });
 
@@ -64,7 +71,7 @@ export const plateauAbovePeak = defineCheck({
   },
   source: 'respiratory mechanics: peak = plateau + resistive pressure (common practice, no source)',
   runTimepoint(ctx) {
-    orderCheck(ctx, 'plateau', 'peak', (low, high) => `Plateau pressure ${formatShort(low)} is above the peak pressure ${formatShort(high)} cmH2O; were they swapped?`);
+    orderCheck(ctx, 'plateau', 'peak', plateauAbovePeakMessage);
   },
 });
 

@@ -13,6 +13,7 @@ export const PLATEAU_LIMIT_CMH2O = 30;
 export const DRIVING_PRESSURE_LIMIT_CMH2O = 15;
 
 function derivedAbove(ctx: TimepointContext, id: string, limit: number, anchorField: string, message: (v: number) => string): void {
+  if (ctx.timepoint.values.originOf(anchorField) !== 'here') return;
   const d = derivedValueOf(ctx.derivation, id);
   const anchor = ctx.timepoint.values.get(anchorField);
   if (!d || d.value <= limit + 1e-9 || !anchor || anchor.origin.kind !== 'here') return;
@@ -49,6 +50,7 @@ export const plateauHigh = defineCheck({
   },
   source: SOURCES['ardsnet-2000'],
   runTimepoint(ctx) {
+    if (ctx.timepoint.values.originOf('plateau') !== 'here') return;
     const plat = ctx.timepoint.values.get('plateau');
     if (!plat || plat.origin.kind !== 'here' || !plat.stated.usable || plat.stated.value === null || plat.stated.value <= PLATEAU_LIMIT_CMH2O) return;
     ctx.report({ range: toRange(plat.stated.line, plat.stated.item.span), message: `Plateau pressure ${formatNumber(plat.stated.value, 0)} cmH2O is above ${PLATEAU_LIMIT_CMH2O} cmH2O.` });
