@@ -57,6 +57,18 @@ export class Word {
 /** Words reused from line to line, by their place in the line; a line longer than this gets words of its own beyond it. */
 const POOL: Word[] = [];
 const POOL_LIMIT = 4096;
+const NO_WORDS: readonly Word[] = Object.freeze([]);
+/** The words `wordsOf` handed out last. */
+let handedOut: readonly Word[] = NO_WORDS;
+
+/**
+ * Lets go of the texts the words handed out last still hold (a word's text may be a slice that
+ * keeps its whole note alive): the parser calls this when it is done with a line.
+ */
+export function releaseWords(): void {
+  for (let k = 0; k < handedOut.length; k++) handedOut[k]!.text = '';
+  handedOut = NO_WORDS;
+}
 
 /**
  * The words of a line body, in a new list of reused words (see `Word`): valid until the next call.
@@ -65,6 +77,7 @@ const POOL_LIMIT = 4096;
  */
 export function wordsOf(body: string, from = 0, intern?: (text: string) => string): Word[] {
   const words: Word[] = [];
+  handedOut = words;
   let i = from;
   let sawComma = false;
   const n = body.length;

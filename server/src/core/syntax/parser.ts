@@ -7,7 +7,7 @@ import { fieldFor, FIELDS, type FieldDef } from '../fields/registry';
 import { SECTIONS, sectionByName, type SectionId } from '../fields/sections';
 import { isKnownUnitSpelling, UNITS } from '../fields/units';
 import { closest } from '../util/suggest';
-import { Chunk, isDigit, leadingNumber, scanNumber, SCANNED, wordsOf, Word } from './lexer';
+import { Chunk, isDigit, leadingNumber, releaseWords, scanNumber, SCANNED, wordsOf, Word } from './lexer';
 import type {
   ItemNode,
   LineFix,
@@ -115,6 +115,8 @@ export function parseLine(text: string, line: number): LineNode {
   } catch {
     // Defensive: the parser is written not to throw, but a line must never take the note down.
     return { kind: 'blank', line, text, comment: null, issues: [{ check: 'stray-text', span: { start: 0, end: text.length }, message: 'This line could not be read.', fixes: [] }] };
+  } finally {
+    releaseWords();
   }
 }
 

@@ -1,0 +1,38 @@
+import { describe, expect, it } from 'vitest';
+import { chunkLine, releaseWords, scanNumber, SCANNED, wordsOf } from '../../server/src/core/syntax/lexer';
+
+describe('lexer', () => {
+  it('cuts words at blanks and separating commas, keeping a decimal comma inside its word', () => {
+    expect(wordsOf('vitals hr 80,rr 7,5 ,  bp 120/80').map((w) => [w.text, w.start, w.end, w.afterComma])).toEqual([
+      ['vitals', 0, 6, false], ['hr', 7, 9, false], ['80', 10, 12, false], ['rr', 13, 15, true], ['7,5', 16, 19, false], ['bp', 23, 25, true], ['120/80', 26, 32, false],
+    ]);
+  });
+
+  it('reuses its words for the next line; chunkLine gives chunks of their own', () => {
+    const kept = chunkLine('abg po2 71');
+    const first = wordsOf('vitals hr 80');
+    const again = wordsOf('oxygen room air');
+    expect(again[0]).toBe(first[0]);
+    expect(first[0]?.text).toBe('oxygen');
+    expect(kept.map((c) => c.text)).toEqual(['abg', 'po2', '71']);
+    // A span read from a word is a copy: it stays as it was when the word is reused.
+    const span = again[1]!.span;
+    wordsOf('x');
+    expect(span).toEqual({ start: 7, end: 11 });
+  });
+
+  it('lets go of the texts of the words it handed out', () => {
+    const words = wordsOf('note a long word: pneumothoraces');
+    releaseWords();
+    expect(words.every((w) => w.text === '')).toBe(true);
+  });
+
+  it('reads a number without an object per number', () => {
+    expect(scanNumber('7,35x')).toBe(4);
+    expect([SCANNED.value, SCANNED.decimalComma]).toEqual([7.35, true]);
+    expect(scanNumber('-12')).toBe(3);
+    expect(SCANNED.value).toBe(-12);
+    expect(scanNumber('abc')).toBe(0);
+    expect(scanNumber('x 42', 2)).toBe(2);
+  });
+});
