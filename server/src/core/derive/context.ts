@@ -197,9 +197,7 @@ export class DeriveContext {
 
   value(value: number | null, terms: readonly (Term | null)[], extra: ValueExtras = NO_EXTRAS): Outcome {
     if (value === null || !Number.isFinite(value)) return NOT_IN_DOMAIN;
-    const kept: Term[] = [];
-    for (const t of terms) if (t !== null) kept.push(t);
-    return { kind: 'value', value, terms: kept, range: extra.range, notes: extra.notes, estimate: extra.estimate, formula: extra.formula };
+    return { kind: 'value', value, terms: withoutNulls(terms), range: extra.range, notes: extra.notes, estimate: extra.estimate, formula: extra.formula };
   }
 
   /** What to add to get another derived value (its own missing inputs), for messages. */
@@ -214,6 +212,14 @@ export class DeriveContext {
   missing(...pairs: readonly (readonly [unknown, string])[]): Outcome {
     return { kind: 'missing', needs: pairs.filter(([t]) => t === null || t === undefined).map(([, key]) => key) };
   }
+}
+
+/** The terms given, without the missing ones: the same list when none is missing (the usual case). */
+function withoutNulls(terms: readonly (Term | null)[]): readonly Term[] {
+  if (!terms.includes(null)) return terms as readonly Term[];
+  const kept: Term[] = [];
+  for (const t of terms) if (t !== null) kept.push(t);
+  return kept;
 }
 
 function defaultTermName(fieldId: string): string {
