@@ -242,6 +242,8 @@ function termOf(input: InputValue, name?: string): Term {
 
 function anchorLine(def: DerivedDef, c: DeriveContext): number | null {
   for (const id of def.anchors) {
+    // Asked first without building the value: most anchors are not stated here.
+    if (!c.statedHere(id)) continue;
     const v = c.input(id);
     if (v && v.origin.kind === 'here') return v.origin.line;
   }

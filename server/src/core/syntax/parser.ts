@@ -601,9 +601,12 @@ function unitWordAt(chunks: readonly Word[], i: number, section: SectionId): Wor
 
 /** `source` is the text of the line (spans and numbers' texts refer to it). */
 function parseItems(section: SectionId, chunks: readonly Word[], start: number, issues: SyntaxIssue[], source: string): readonly ItemNode[] {
-  const items: Item[] = [];
   let i = start;
   const n = chunks.length;
+  // Each item takes a chunk at least, but a shorthand gas gives up to four from one: a list of
+  // that size, cut to the items read at the end (in place), kept as long as the line.
+  const items = new Array<Item>(n - start + 3);
+  let count = 0;
 
 
   // Shorthand gas: abg 7.28/56/71/26 [kPa]
@@ -619,7 +622,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
         group.parts.forEach((part, k) => {
           const keyName = SHORTHAND_KEYS[k]!;
           const isPressure = keyName === 'pco2' || keyName === 'po2';
-          items.push(new Item(null, keyName, 'shorthand', fieldFor(section, keyName) ?? null, null, source, part.value, part.span.start, part.span.end, part.decimalComma, isPressure ? unit : null, part.span.start, part.span.end));
+          items[count++] = new Item(null, keyName, 'shorthand', fieldFor(section, keyName) ?? null, null, source, part.value, part.span.start, part.span.end, part.decimalComma, isPressure ? unit : null, part.span.start, part.span.end);
         });
       }
     }
@@ -631,7 +634,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
     if (dev) {
       i = start + dev.used;
       const value: WordValue = { kind: 'word', text: dev.text, span: dev.span };
-      items.push(otherItem(null, 'device', 'device', fieldFor(section, 'device') ?? null, value, null, dev.span.start, dev.span.end));
+      items[count++] = otherItem(null, 'device', 'device', fieldFor(section, 'device') ?? null, value, null, dev.span.start, dev.span.end);
       const next = chunks[i];
       if (next && !next.afterComma) {
         const length = numberChunk(next);
@@ -643,7 +646,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
           const unit = glued ?? unitWordAt(chunks, i, section);
           if (unit !== glued) i++; // the unit is the next chunk
           const keyName = dev.text.toLowerCase() === 'cpap' ? 'level' : 'flow';
-          items.push(numberItem(null, keyName, 'device-flow', fieldFor(section, keyName) ?? null, source, number, next.start, next.start + length, comma, unit, next.start));
+          items[count++] = numberItem(null, keyName, 'device-flow', fieldFor(section, keyName) ?? null, source, number, next.start, next.start + length, comma, unit, next.start);
         }
       }
     }
@@ -692,7 +695,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
           const glued = gluedUnit(next, length);
           unit = glued ?? unitWordAt(chunks, i, section);
           if (unit !== glued) i++; // the unit is the next chunk
-          items.push(numberItem(key.text, keyName, null, field, source, number, next.start, next.start + length, comma, unit, key.start));
+          items[count++] = numberItem(key.text, keyName, null, field, source, number, next.start, next.start + length, comma, unit, key.start);
           continue;
         }
       }
@@ -701,11 +704,12 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
       issues.push({ check: 'missing-value', span: key.span, message: `\`${key.text}\` has no value.`, fixes: [] });
     }
     const end = unit ? unit.end : value ? value.span.end : key.end;
-    items.push(otherItem(key.text, keyName, null, field, value, unit, key.start, end));
+    items[count++] = otherItem(key.text, keyName, null, field, value, unit, key.start, end);
   }
 
   // Decimal commas anywhere in the line's numbers (few lines have one: asked of each item without building its number).
-  for (const item of items) {
+  for (let k = 0; k < count; k++) {
+    const item = items[k]!;
     if (!item.hasDecimalComma()) continue;
     const value = item.value;
     const numbers: readonly NumberValue[] = value?.kind === 'number' ? [value] : value?.kind === 'pair' ? value.parts : NONE;
@@ -720,7 +724,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
       });
     }
   }
-  // Kept as long as the line: a copy of its exact length (an array grown by push keeps room to
-  // spare, and a big note has thousands of item lists).
-  return items.length === 0 ? NONE : items.slice();
+  if (count === 0) return NONE;
+  items.length = count;
+  return items;
 }
