@@ -100,10 +100,12 @@ function hasFreeText(text: string, from: number, to: number): boolean {
 /** Identifiers on one line, with spans in line coordinates. */
 export function scanLine(node: LineNode): readonly PrivacyMatch[] {
   found = null;
-  eachFreeText(node, scanPart);
-  const out = found;
-  found = null;
-  return out ?? NONE;
+  try {
+    eachFreeText(node, scanPart);
+    return found ?? NONE;
+  } finally {
+    found = null;
+  }
 }
 
 /**

@@ -12,11 +12,3 @@ export function pushAll<T>(target: T[], items: readonly T[]): void {
  * identifier, and a big note keeps tens of thousands of such lists. Frozen, so sharing is safe.
  */
 export const NONE: readonly never[] = Object.freeze([]);
-
-/** The value kept in `store` under `key`, computed and kept on first use. */
-export function keptIn<K, T>(store: Map<K, T>, key: K, compute: () => T): T {
-  if (store.has(key)) return store.get(key) as T;
-  const value = compute();
-  store.set(key, value);
-  return value;
-}
