@@ -274,8 +274,8 @@ export function barometricInForce(place: ReadonlyMap<string, { stated: StatedVal
 
 /**
  * The first value of each section and field among the values read so far in a block, searched
- * in place: a block holds one value per section and field at most (65 pairs in the registry),
- * so a search is short however many values a block repeats.
+ * in place: the list holds at most one value per section and field (65 pairs in the registry), so
+ * a search is short however many values a block repeats.
  */
 class FirstSeen {
   private readonly values: StatedValue[] = [];
