@@ -82,7 +82,7 @@ const IN_PROGRESS = 0;
 
 export class DeriveContext {
   /** Results by slot: undefined until computed. Arrays, not maps: a big note has tens of thousands of contexts. */
-  private readonly results: (Evaluated | typeof IN_PROGRESS | undefined)[];
+  private results: (Evaluated | typeof IN_PROGRESS | undefined)[] | null = null;
   private memos: SmallStore<Kept<unknown, DeriveContext>, unknown> | null = null;
   private terms: SmallStore<string, Term> | null = null;
   /** Inputs read so far (null: not in force). A read of the values in force builds the value. */
@@ -92,9 +92,7 @@ export class DeriveContext {
     readonly timepoint: Timepoint,
     readonly settings: Settings,
     private readonly table: DerivedTable,
-  ) {
-    this.results = new Array<Evaluated | typeof IN_PROGRESS | undefined>(table.list.length);
-  }
+  ) {}
 
   /** A value computed once per timepoint and shared by several definitions (e.g. the acid–base classification). */
   memo<T>(kept: Kept<T, DeriveContext>): T {
@@ -156,11 +154,13 @@ export class DeriveContext {
 
   /** The definition at `slot` of the registry, computed once. */
   evaluateSlot(slot: number): Evaluated {
-    const known = this.results[slot];
+    // Made on the first evaluation: many timepoints derive nothing (a line of vital signs).
+    const results = (this.results ??= new Array<Evaluated | typeof IN_PROGRESS | undefined>(this.table.list.length));
+    const known = results[slot];
     if (known !== undefined) return known === IN_PROGRESS ? null : known;
-    this.results[slot] = IN_PROGRESS;
+    results[slot] = IN_PROGRESS;
     const result = evaluateDef(this.table.list[slot]!, this);
-    this.results[slot] = result;
+    results[slot] = result;
     return result;
   }
 

@@ -35,10 +35,10 @@ const DISORDER_WORDS: Readonly<Record<AcidBaseDisorder, string>> = {
 
 export function interpret(c: DeriveContext, settings: Settings): Interpretation[] {
   const out: Interpretation[] = [];
-  const pao2 = c.field('pao2', 'PaO2');
-  const paco2 = c.field('paco2', 'PaCO2');
   const gasHere = c.statedHere('pao2') || c.statedHere('paco2') || c.statedHere('ph');
   if (!gasHere) return out;
+  const pao2 = c.field('pao2', 'PaO2');
+  const paco2 = c.field('paco2', 'PaCO2');
   const line = (pao2 ?? paco2)?.origin.kind === 'here' ? ((pao2 ?? paco2)!.origin as { line: number }).line : null;
   const push = (topic: Interpretation['topic'], text: string, basis: string[], notable = true) => out.push({ topic, text, basis, line, notable });
 
