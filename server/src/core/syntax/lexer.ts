@@ -120,7 +120,9 @@ export function wordsOf(body: string, from = 0, intern?: (text: string) => strin
  * between two digits stays inside its chunk (a decimal comma, reported later).
  */
 export function chunkLine(body: string, from = 0): Chunk[] {
-  return wordsOf(body, from).map((w) => new Chunk(w.text, w.start, w.end, w.afterComma));
+  const chunks = wordsOf(body, from).map((w) => new Chunk(w.text, w.start, w.end, w.afterComma));
+  releaseWords();
+  return chunks;
 }
 
 export interface NumberParts {
