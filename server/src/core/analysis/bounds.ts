@@ -13,28 +13,14 @@ export interface BoundsContext {
   readonly barometricMmhg: number | null;
 }
 
-export function softBounds(field: FieldDef, ctx: BoundsContext): Bounds | undefined {
-  return softBoundsAt(field, ctx.barometricMmhg);
-}
-
-/** `softBounds` with the barometric pressure given alone (no context object per value). */
+/** The soft bounds of a field where the barometric pressure in force is `barometricMmhg` (null: unknown). */
 export function softBoundsAt(field: FieldDef, barometricMmhg: number | null): Bounds | undefined {
   const soft = field.soft;
   if (!soft) return undefined;
   if (barometricMmhg !== null && barometricMmhg < LOW_PRESSURE_WAIVER_MMHG && WAIVED_AT_ALTITUDE.has(field.id)) {
-    return soft.max === undefined ? NO_BOUNDS : (WAIVED.get(field.id) ?? keepWaived(field.id, soft.max));
+    return soft.max === undefined ? {} : { max: soft.max };
   }
   return soft;
-}
-
-const NO_BOUNDS: Bounds = Object.freeze({});
-/** The waived bounds of each field, built once. */
-const WAIVED = new Map<string, Bounds>();
-
-function keepWaived(id: string, max: number): Bounds {
-  const bounds = Object.freeze({ max });
-  WAIVED.set(id, bounds);
-  return bounds;
 }
 
 export function within(value: number, bounds: Bounds | undefined): boolean {

@@ -9,7 +9,7 @@ import { convert, unitById, unitsForSpelling, type UnitDef } from '../fields/uni
 import type { ItemNode, LineFix, PairValue } from '../syntax/tree';
 import { formatNumber } from '../util/format';
 import { closest } from '../util/suggest';
-import { softBounds, within, type BoundsContext } from './bounds';
+import { softBoundsAt, within, type BoundsContext } from './bounds';
 import type { StatedValue } from './model';
 import type { ReadIssue } from './read-issues';
 
@@ -177,7 +177,7 @@ function bareUnit(field: FieldDef, written: number, ctx: ReadContext, canonical:
 /** A unit (other than the one assumed) in which a bare number would be ordinary. */
 function otherUnitLikely(field: FieldDef, canonicalValue: number, written: number, readUnit: UnitDef, canonical: UnitDef, ctx: ReadContext): UnitDef | null {
   if (field.bare === 'fraction-or-percent') return null;
-  const soft = softBounds(field, ctx) ?? field.hard;
+  const soft = softBoundsAt(field, ctx.barometricMmhg) ?? field.hard;
   if (!soft || within(canonicalValue, soft)) return null;
   for (const id of field.units ?? []) {
     if (id === readUnit.id) continue;

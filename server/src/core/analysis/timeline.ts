@@ -119,7 +119,6 @@ export function buildTimelineIncremental(tree: NoteTree, settings: Settings, pre
     for (const issue of result.issues) readIssues.push(issue);
     state = result.stateOut;
   }
-  lineValues.length = 0; // holds nothing of this note once read
   return { timeline: { timepoints, readIssues, header }, cache: { settings, lines, blocks: entries, reused } };
 }
 
@@ -156,7 +155,6 @@ function sameState(a: CarryState, b: CarryState): boolean {
   );
 }
 
-/** Reads the block `lines[start, end)`. */
 /**
  * How bare numbers are read (from the gas unit and the place in force), kept from block to block
  * of one run: few lines change it.
@@ -165,6 +163,7 @@ interface Reading {
   context: ReadContextIn | null;
 }
 
+/** Reads the block `lines[start, end)`. */
 function processBlock(lines: readonly LineNode[], start: number, end: number, index: number, stateIn: CarryState, settings: Settings, tree: NoteTree, previousOut: CarryState | null, reading: Reading): BlockResult {
   const endLine = end - 1;
   const issues: ReadIssue[] = [];
@@ -246,23 +245,14 @@ function readContext(state: CarryState, settings: Settings): ReadContextIn {
   return { place: state.place, gasUnit: state.gasUnit, read: { gasUnit, barometricMmhg: barometricInForce(state.place, settings) } };
 }
 
-/**
- * The values of one line, in a list reused for every line (its values are copied to their
- * timepoint before the next line is read): valid until the next call.
- */
 function readLine(node: SectionLine, context: ReadContext, issues: ReadIssue[]): readonly StatedValue[] {
-  // A list grown by a very long line is not kept for the rest of the note.
-  if (lineValues.length > 4096) lineValues = [];
-  const out = lineValues;
-  out.length = 0;
+  const out: StatedValue[] = [];
   for (const item of node.items) {
     const stated = readItem(item, node.section, node.line, context, issues);
     if (stated) out.push(stated);
   }
   return out;
 }
-
-let lineValues: StatedValue[] = [];
 
 export function barometricInForce(place: ReadonlyMap<string, { stated: StatedValue }>, settings: Settings): number | null {
   const pb = place.get('barometric')?.stated;
