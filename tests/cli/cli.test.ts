@@ -1,7 +1,7 @@
 // The command line: exit codes, the JSON shape, unreadable input, colour, stdin.
 // Most tests call `run` with in-memory streams; a few run the built bundle as users do.
 import { spawnSync } from 'node:child_process';
-import { mkdtempSync, writeFileSync, mkdirSync } from 'node:fs';
+import { mkdtempSync, writeFileSync, mkdirSync, truncateSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
@@ -94,12 +94,17 @@ describe('pneumark check', async () => {
     const dir = tempDir();
     writeFileSync(join(dir, 'binary.pneu'), Buffer.from([0x76, 0x00, 0x01, 0x02]));
     writeFileSync(join(dir, 'ok.pneu'), 'vitals hr 80\n');
+    // 21 MB without writing them: a sparse file (the size is what the limit reads).
+    writeFileSync(join(dir, 'huge.pneu'), '');
+    truncateSync(join(dir, 'huge.pneu'), 21 * 1024 * 1024);
     const out = io();
-    const code = await run(['check', join(dir, 'binary.pneu'), join(dir, 'missing.pneu'), join(dir, 'ok.pneu')], out);
+    const code = await run(['check', join(dir, 'binary.pneu'), join(dir, 'missing.pneu'), join(dir, 'huge.pneu'), join(dir, 'ok.pneu')], out);
     expect(code).toBe(2);
     expect(out.err()).toMatch(/binary.pneu: looks like a binary file/);
     expect(out.err()).toMatch(/missing.pneu: no such file or folder/);
-    expect(out.out()).toMatch(/1 note checked, 2 could not be read/);
+    expect(out.err()).toMatch(/huge.pneu: too large to check \(21\.0 MB; the limit is 20 MB\)/);
+    expect(out.err().trim().split('\n')).toHaveLength(3);
+    expect(out.out()).toMatch(/1 note checked, 3 could not be read/);
   });
 
   it('reads a note from standard input with -', async () => {

@@ -5,7 +5,7 @@
  * depends on the file system or on parallelism. Unreadable, binary or huge files give a one-line
  * problem and the run goes on.
  */
-import { existsSync, readFileSync, statSync } from 'node:fs';
+import { closeSync, existsSync, fstatSync, openSync, readFileSync, readSync, statSync } from 'node:fs';
 import { isAbsolute, join, relative, sep } from 'node:path';
 import ignore from 'ignore';
 import { globSync, isDynamicPattern } from 'tinyglobby';
@@ -94,14 +94,21 @@ export function readNote(path: string, cwd: string, stdin: () => Buffer): NoteIn
   try {
     if (path === '-') bytes = stdin();
     else {
-      const abs = isAbsolute(path) ? path : join(cwd, path);
-      const stat = statSync(abs);
-      if (stat.isDirectory()) return { path: shown, text: null, problem: 'is a folder' };
-      if (stat.size > MAX_NOTE_BYTES) return { path: shown, text: null, problem: `too large to check (${(stat.size / 1048576).toFixed(1)} MB; the limit is ${MAX_NOTE_BYTES / 1048576} MB)` };
-      bytes = readFileSync(abs);
+      // One open, then the size from the open file: a folder of notes is read with as few system
+      // calls per note as the checks need (a path looked up once, not once for stat and again to read).
+      const fd = openSync(isAbsolute(path) ? path : join(cwd, path), 'r');
+      try {
+        const stat = fstatSync(fd);
+        if (stat.isDirectory()) return { path: shown, text: null, problem: 'is a folder' };
+        if (stat.size > MAX_NOTE_BYTES) return { path: shown, text: null, problem: `too large to check (${(stat.size / 1048576).toFixed(1)} MB; the limit is ${MAX_NOTE_BYTES / 1048576} MB)` };
+        bytes = stat.isFile() ? readAll(fd, stat.size) : readFileSync(fd);
+      } finally {
+        closeSync(fd);
+      }
     }
   } catch (error) {
     const code = (error as NodeJS.ErrnoException).code;
+    if (code === 'EISDIR') return { path: shown, text: null, problem: 'is a folder' };
     const problem = code === 'EACCES' || code === 'EPERM' ? 'permission denied' : code === 'ENOENT' ? 'no such file or folder' : `cannot be read (${code ?? 'unknown error'})`;
     return { path: shown, text: null, problem };
   }
@@ -110,6 +117,18 @@ export function readNote(path: string, cwd: string, stdin: () => Buffer): NoteIn
   let text = bytes.toString('utf8');
   if (text.charCodeAt(0) === 0xfeff) text = text.slice(1);
   return { path: shown, text, problem: null };
+}
+
+/** The bytes of an open regular file of `size` bytes (fewer if it shrank meanwhile). */
+function readAll(fd: number, size: number): Buffer {
+  const bytes = Buffer.allocUnsafe(size);
+  let read = 0;
+  while (read < size) {
+    const n = readSync(fd, bytes, read, size - read, read);
+    if (n === 0) break;
+    read += n;
+  }
+  return read === size ? bytes : bytes.subarray(0, read);
 }
 
 /** A NUL byte in the first 8 KiB marks a binary file (as git does). */

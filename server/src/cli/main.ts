@@ -17,10 +17,10 @@ import { colourWanted, paint, type Paint } from './colour';
 import { runExport, exportRenderer } from './export-command';
 import { runFmt } from './fmt-command';
 import { listInputs, readNote } from './inputs';
-import { gather } from './pool';
+import { gather, type WorkDone, type WorkItem } from './pool';
 import { renderCheckJson, renderCheckText, renderCheckSarif, type FileOutcome } from './render-check';
 import { renderShow } from './render-show';
-import { NoteWorker, type FileReport, type Task } from './work';
+import { NoteWorker, packReport, type FileReport, type Task } from './work';
 
 export async function run(argv: readonly string[], io: Io): Promise<number> {
   const [command, ...rest] = argv;
@@ -110,18 +110,19 @@ function docs(args: readonly string[], io: Io): number {
   return EXIT.ok;
 }
 
-/** Worker thread: analyses the notes it is sent and posts each report back. */
+/** Worker thread: analyses the batches of notes it is sent and posts each batch's reports back. */
 function workerMain(): void {
   const data = workerData as { cwd: string; overrides: object; task: Task };
   const worker = new NoteWorker(data.cwd, data.overrides, exportRenderer);
-  parentPort?.on('message', (m: { f: string; i: number }) => {
-    let report: FileReport;
-    try {
-      report = worker.run(m.f, data.task, () => Buffer.alloc(0));
-    } catch (error) {
-      report = { path: m.f, problem: `could not be analysed (${error instanceof Error ? error.message : String(error)})`, findings: [] };
-    }
-    parentPort?.postMessage({ i: m.i, report });
+  parentPort?.on('message', (batch: WorkItem[]) => {
+    const done: WorkDone[] = batch.map((m) => {
+      try {
+        return { i: m.i, report: packReport(worker.run(m.f, data.task, () => Buffer.alloc(0))) };
+      } catch (error) {
+        return { i: m.i, report: packReport({ path: m.f, problem: `could not be analysed (${error instanceof Error ? error.message : String(error)})`, findings: [] }) };
+      }
+    });
+    parentPort?.postMessage(done);
   });
 }
 

@@ -8,10 +8,32 @@ import { Worker } from 'node:worker_threads';
 import type { Settings } from '../core/settings';
 import type { Io } from './args';
 import { progressBar } from './progress';
-import type { FileReport, NoteWorker, Task } from './work';
+import { unpackReport, type FileReport, type NoteWorker, type PackedReport, type Task } from './work';
 
 /** Below this many notes a single thread is faster than starting workers. */
 export const PARALLEL_FROM = 200;
+
+/** Batches each worker has been sent and not yet answered. */
+const IN_FLIGHT = 2;
+
+/** A note sent to a worker (its path and its place in the output), and what comes back. */
+export interface WorkItem {
+  readonly f: string;
+  readonly i: number;
+}
+export interface WorkDone {
+  readonly i: number;
+  readonly report: PackedReport;
+}
+
+/**
+ * Notes per message to a worker. One note per message leaves a worker idle for a round trip per
+ * note (as long as checking a small note); big batches leave one worker with the last long ones.
+ * About eight batches per worker, from 1 to 64 notes.
+ */
+export function batchSize(notes: number, workers: number): number {
+  return Math.max(1, Math.min(64, Math.floor(notes / (Math.max(1, workers) * 8))));
+}
 
 export interface PoolOptions {
   readonly cwd: string;
@@ -55,23 +77,33 @@ export async function runAll(files: readonly string[], task: Task, local: NoteWo
     finish(i, local.run(f, task, stdin));
     return false;
   });
+  const workers = Math.min(options.workers, queue.length);
+  const size = batchSize(queue.length, workers);
   let next = 0;
-  await Promise.all(Array.from({ length: Math.min(options.workers, queue.length) }, () => new Promise<void>((resolve, reject) => {
+  await Promise.all(Array.from({ length: workers }, () => new Promise<void>((resolve, reject) => {
     const worker = new Worker(__filename, { workerData: { pneumarkWorker: true, cwd: options.cwd, overrides: options.overrides, task } });
-    const feed = () => {
-      const item = queue[next++];
-      if (!item) {
-        void worker.terminate().then(() => resolve());
-        return;
-      }
-      worker.postMessage(item);
+    let inFlight = 0;
+    /** Sends the next batch; true when there was one. */
+    const feed = (): boolean => {
+      if (next >= queue.length) return false;
+      const batch: WorkItem[] = queue.slice(next, next + size);
+      next += batch.length;
+      inFlight++;
+      worker.postMessage(batch);
+      return true;
     };
-    worker.on('message', (m: { i: number; report: FileReport }) => {
-      finish(m.i, m.report);
-      feed();
+    worker.on('message', (done: WorkDone[]) => {
+      inFlight--;
+      for (const d of done) finish(d.i, unpackReport(d.report));
+      if (!feed() && inFlight === 0) void worker.terminate().then(() => resolve());
     });
     worker.on('error', reject);
-    worker.on('online', feed);
+    worker.on('online', () => {
+      // Two batches in flight: the worker starts the second while the first goes back and the
+      // next one comes, so it never waits for a round trip through this thread.
+      for (let k = 0; k < IN_FLIGHT; k++) feed();
+      if (inFlight === 0) void worker.terminate().then(() => resolve());
+    });
   })));
   return reports;
 }

@@ -6,7 +6,7 @@
 import { isAbsolute, join } from 'node:path';
 import { checkNote, type NoteResult } from '../core/check-note';
 import type { Settings } from '../core/settings';
-import type { Finding } from '../core/types';
+import type { Finding, Severity } from '../core/types';
 import { ProjectConfigs } from '../node/project-config';
 import { readNote, type NoteInput } from './inputs';
 import { timepointsJson } from './timepoints-json';
@@ -51,4 +51,68 @@ export class NoteWorker {
     }
     return { path: note.path, problem: null, findings: result.findings, payload: this.exportRenderer?.(note.path, result, task) ?? null };
   }
+}
+
+/**
+ * A note's findings as they cross from a worker to the main thread: the four numbers of each range
+ * in one typed array and the four strings of each finding in one list, plus the rare fixes and
+ * related places by index. A structured clone copies a typed array in one piece but a finding's
+ * six objects one by one; a folder of notes has over a hundred thousand findings.
+ */
+export interface PackedFindings {
+  /** Start line, start character, end line, end character of each finding. */
+  readonly ranges: Int32Array;
+  /** Code, severity, message and documentation anchor of each finding. */
+  readonly strings: readonly string[];
+  /** Findings with fixes or related places: their index and those parts. */
+  readonly extras: readonly { readonly index: number; readonly fixes: Finding['fixes']; readonly related?: Finding['related'] }[];
+}
+
+export function packFindings(findings: readonly Finding[]): PackedFindings {
+  const ranges = new Int32Array(4 * findings.length);
+  const strings = new Array<string>(4 * findings.length);
+  const extras: { index: number; fixes: Finding['fixes']; related?: Finding['related'] }[] = [];
+  findings.forEach((f, k) => {
+    const r = f.range;
+    ranges[4 * k] = r.start.line;
+    ranges[4 * k + 1] = r.start.character;
+    ranges[4 * k + 2] = r.end.line;
+    ranges[4 * k + 3] = r.end.character;
+    strings[4 * k] = f.code;
+    strings[4 * k + 1] = f.severity;
+    strings[4 * k + 2] = f.message;
+    strings[4 * k + 3] = f.docAnchor;
+    if (f.fixes.length > 0 || f.related) extras.push({ index: k, fixes: f.fixes, ...(f.related ? { related: f.related } : {}) });
+  });
+  return { ranges, strings, extras };
+}
+
+export function unpackFindings(packed: PackedFindings): Finding[] {
+  const { ranges, strings } = packed;
+  const findings = new Array<Finding>(ranges.length / 4);
+  let e = 0;
+  for (let k = 0; k < findings.length; k++) {
+    const extra = packed.extras[e]?.index === k ? packed.extras[e++] : undefined;
+    findings[k] = {
+      code: strings[4 * k]!,
+      severity: strings[4 * k + 1] as Severity,
+      message: strings[4 * k + 2]!,
+      range: { start: { line: ranges[4 * k]!, character: ranges[4 * k + 1]! }, end: { line: ranges[4 * k + 2]!, character: ranges[4 * k + 3]! } },
+      fixes: extra?.fixes ?? [],
+      docAnchor: strings[4 * k + 3]!,
+      ...(extra?.related ? { related: extra.related } : {}),
+    };
+  }
+  return findings;
+}
+
+/** A report as a worker sends it (its findings packed). */
+export type PackedReport = Omit<FileReport, 'findings'> & { readonly findings: PackedFindings };
+
+export function packReport(report: FileReport): PackedReport {
+  return { ...report, findings: packFindings(report.findings) };
+}
+
+export function unpackReport(report: PackedReport): FileReport {
+  return { ...report, findings: unpackFindings(report.findings) };
 }

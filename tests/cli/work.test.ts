@@ -1,0 +1,65 @@
+// What crosses from a worker thread to the main thread: packed findings come back as they went
+// in, and notes are read with one open each (folders and limits reported, not thrown).
+import { mkdtempSync, mkdirSync, readFileSync, readdirSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { checkNote } from '../../server/src/core/check-note';
+import type { Finding } from '../../server/src/core/types';
+import { readNote } from '../../server/src/cli/inputs';
+import { batchSize } from '../../server/src/cli/pool';
+import { packFindings, packReport, unpackFindings, unpackReport } from '../../server/src/cli/work';
+
+const roundTrip = (findings: readonly Finding[]) => unpackFindings(structuredClone(packFindings(findings)));
+
+describe('packed findings', () => {
+  it('come back equal, for every sample note, through a structured clone', () => {
+    for (const name of readdirSync('samples')) {
+      const findings = checkNote(readFileSync(join('samples', name), 'utf8')).findings;
+      expect(findings.length, name).toBeGreaterThan(0);
+      expect(roundTrip(findings), name).toEqual(findings);
+    }
+  });
+
+  it('keep fixes and related places where a finding has them, and nothing extra where it has none', () => {
+    const range = (line: number, a: number, b: number) => ({ start: { line, character: a }, end: { line, character: b } });
+    const findings: Finding[] = [
+      { code: 'PN101', severity: 'error', message: 'first', range: range(0, 0, 5), fixes: [], docAnchor: 'pn101' },
+      { code: 'PN205', severity: 'warning', message: 'with a fix', range: range(3, 7, 9), fixes: [{ title: 'Change to `kPa`', edits: [{ range: range(3, 7, 9), newText: 'kPa' }], preferred: true }], docAnchor: 'pn205' },
+      { code: 'PN206', severity: 'information', message: 'with a related place', range: range(12, 0, 30), fixes: [], docAnchor: 'pn206', related: [{ range: range(2, 4, 8), message: 'first stated here' }] },
+      { code: 'PN410', severity: 'hint', message: 'last', range: range(70000, 1, 2), fixes: [], docAnchor: 'pn410' },
+    ];
+    const back = roundTrip(findings);
+    expect(back).toEqual(findings);
+    expect('related' in back[0]!).toBe(false);
+    expect(roundTrip([])).toEqual([]);
+  });
+
+  it('leave the rest of a report as it is', () => {
+    const report = { path: 'ward/a.pneu', problem: null, findings: checkNote('@ 08:00\nvitals spo2 104\n').findings, timepoints: [{ label: '08:00' }] };
+    expect(unpackReport(structuredClone(packReport(report)))).toEqual(report);
+  });
+});
+
+describe('batches for workers', () => {
+  it('give each worker about eight batches, of 1 to 64 notes', () => {
+    expect(batchSize(10, 2)).toBe(1);
+    expect(batchSize(200, 2)).toBe(12);
+    expect(batchSize(10000, 2)).toBe(64);
+    expect(batchSize(0, 0)).toBe(1);
+  });
+});
+
+describe('reading a note', () => {
+  it('reports a folder, a missing file and the size limit in a line, and reads a note with a byte-order mark', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'pneumark-read-'));
+    mkdirSync(join(dir, 'folder.pneu'));
+    writeFileSync(join(dir, 'bom.pneu'), '\uFEFF@ 08:00\nvitals hr 80\n');
+    const none = () => Buffer.alloc(0);
+    expect(readNote('folder.pneu', dir, none)).toEqual({ path: 'folder.pneu', text: null, problem: 'is a folder' });
+    expect(readNote('missing.pneu', dir, none)).toEqual({ path: 'missing.pneu', text: null, problem: 'no such file or folder' });
+    expect(readNote('bom.pneu', dir, none)).toEqual({ path: 'bom.pneu', text: '@ 08:00\nvitals hr 80\n', problem: null });
+    expect(readNote(join(dir, 'bom.pneu'), '/', none).text).toBe('@ 08:00\nvitals hr 80\n');
+    expect(readNote('-', dir, () => Buffer.from('vitals hr 80\n'))).toEqual({ path: '<stdin>', text: 'vitals hr 80\n', problem: null });
+  });
+});
