@@ -177,6 +177,11 @@ describe('parallel runs', () => {
       const parallel = runWith('2', args);
       expect(parallel.status, parallel.stderr).toBe(single.status);
       expect(parallel.stdout).toBe(single.stdout);
+      // --jobs wins over the environment either way.
+      const [command, ...rest] = args;
+      const byOption = runWith('0', [command!, '--jobs', '3', ...rest]);
+      expect(byOption.stdout).toBe(single.stdout);
+      expect(runWith('2', [command!, '--jobs', '0', ...rest]).stdout).toBe(single.stdout);
     }
   });
 });

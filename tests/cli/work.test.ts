@@ -7,7 +7,10 @@ import { describe, expect, it } from 'vitest';
 import { checkNote } from '../../server/src/core/check-note';
 import type { Finding } from '../../server/src/core/types';
 import { readNote } from '../../server/src/cli/inputs';
-import { batchSize } from '../../server/src/cli/pool';
+import { batchSize, PARALLEL_FROM, workerCount } from '../../server/src/cli/pool';
+import { run } from '../../server/src/cli/main';
+import { availableParallelism } from 'node:os';
+import { Writable } from 'node:stream';
 import { packFindings, packReport, unpackFindings, unpackReport } from '../../server/src/cli/work';
 
 const roundTrip = (findings: readonly Finding[]) => unpackFindings(structuredClone(packFindings(findings)));
@@ -47,6 +50,32 @@ describe('batches for workers', () => {
     expect(batchSize(200, 2)).toBe(12);
     expect(batchSize(10000, 2)).toBe(64);
     expect(batchSize(0, 0)).toBe(1);
+  });
+});
+
+describe('worker count', () => {
+  it('comes from --jobs, else PNEUMARK_WORKERS, else the cores from PARALLEL_FROM notes on', () => {
+    expect(workerCount(10, { PNEUMARK_WORKERS: '3' }, 0)).toBe(0);
+    expect(workerCount(10, {}, 2)).toBe(2);
+    expect(workerCount(10, { PNEUMARK_WORKERS: '3' })).toBe(3);
+    expect(workerCount(10, { PNEUMARK_WORKERS: 'many' })).toBe(0);
+    expect(workerCount(PARALLEL_FROM - 1, {})).toBe(0);
+    expect(workerCount(PARALLEL_FROM, {})).toBe(Math.min(4, availableParallelism()));
+  });
+
+  it('refuses a --jobs that is not a whole number from 0 to 64, with a usage error', async () => {
+    for (const jobs of ['x', '-1', '65', '1.5']) {
+      let err = '';
+      const code = await run(['check', `--jobs=${jobs}`, 'samples'], {
+        cwd: process.cwd(),
+        env: {},
+        stdout: { write: () => true },
+        stderr: new Writable({ write(chunk: Buffer, _e, done) { err += chunk.toString(); done(); } }),
+        stdin: () => Buffer.alloc(0),
+      });
+      expect(code, jobs).toBe(2);
+      expect(err, jobs).toMatch(/--jobs: expected a whole number from 0 to 64/);
+    }
   });
 });
 

@@ -48,6 +48,7 @@ Options:
   --quiet                    report errors only (text and sarif)
   --max-warnings N           exit 1 when there are more than N warnings
   --exclude PATTERN          leave out paths matching PATTERN (gitignore syntax; repeatable)
+  --jobs N                   worker threads (0 or 1: none); default one per core, up to 4, from 200 notes
   --no-progress              no progress bar, even on a terminal`,
   export: `Usage: pneumark export PATH... --format csv|jsonl|fhir [options]
 
@@ -58,6 +59,7 @@ Options:
   --shift-days N             add N days to every day number and time offset (de-identification)
   --anchor DATETIME          FHIR only: the ISO date-time of day 1 00:00, to give observations a time
   --exclude PATTERN          leave out paths matching PATTERN (repeatable)
+  --jobs N                   worker threads (0 or 1: none); default one per core, up to 4, from 200 notes
   --no-progress              no progress bar, even on a terminal
 Columns are listed in README.md ("Export columns").`,
   fmt: `Usage: pneumark fmt PATH... [--check | --write] [--force]
@@ -74,6 +76,9 @@ Prints (or writes) the documentation of every check, generated from the check re
 };
 
 export class UsageError extends Error {}
+
+/** `--jobs N`: worker threads for check and export (0 or 1: this thread only). */
+export const jobsOption = z.coerce.number({ message: 'expected a whole number from 0 to 64' }).int({ message: 'expected a whole number from 0 to 64' }).min(0, { message: 'expected a whole number from 0 to 64' }).max(64, { message: 'expected a whole number from 0 to 64' }).optional();
 
 type OptionSpec = Record<string, { type: 'string' | 'boolean'; short?: string; multiple?: boolean }>;
 

@@ -9,7 +9,7 @@ import { csvCells, csvHeader } from '../core/export/csv';
 import { exportColumns, timepointCells } from '../core/export/columns';
 import { anchorProblem, toFhirBundle } from '../core/export/fhir';
 import { toJsonl } from '../core/export/jsonl';
-import { EXIT, HELP, parse, UsageError, validate, type Io } from './args';
+import { EXIT, HELP, jobsOption, parse, UsageError, validate, type Io } from './args';
 import { listInputs } from './inputs';
 import { gather } from './pool';
 import { NoteWorker, type ExportRenderer } from './work';
@@ -20,6 +20,7 @@ const exportOptions = z.object({
   shiftDays: z.coerce.number().int().min(-100000).max(100000).default(0),
   anchor: z.string().max(64).nullable().default(null).refine((a) => a === null || anchorProblem(a) === null, { message: 'not an ISO 8601 date-time with a zone, e.g. 2026-01-05T00:00:00Z' }),
   exclude: z.array(z.string().min(1).max(500)).max(100).default([]),
+  jobs: jobsOption,
   progress: z.boolean().default(true),
 });
 
@@ -36,15 +37,15 @@ export const exportRenderer: ExportRenderer = (path: string, result: NoteResult,
 export async function runExport(args: readonly string[], io: Io): Promise<number> {
   const { positionals, values } = parse(args, {
     format: { type: 'string' }, redact: { type: 'boolean' }, 'shift-days': { type: 'string' }, anchor: { type: 'string' },
-    exclude: { type: 'string', multiple: true }, 'no-progress': { type: 'boolean' },
+    exclude: { type: 'string', multiple: true }, jobs: { type: 'string' }, 'no-progress': { type: 'boolean' },
   });
   if (values.help) { io.stdout.write(`${HELP.export}\n`); return EXIT.ok; }
-  const opts = validate(exportOptions, { format: values.format, redact: values.redact, shiftDays: values['shift-days'], anchor: values.anchor ?? null, exclude: values.exclude, progress: !values['no-progress'] });
+  const opts = validate(exportOptions, { format: values.format, redact: values.redact, shiftDays: values['shift-days'], anchor: values.anchor ?? null, exclude: values.exclude, jobs: values.jobs, progress: !values['no-progress'] });
   if (opts.anchor && opts.format !== 'fhir') throw new UsageError('--anchor only applies to --format fhir');
   if (positionals.length === 0) throw new UsageError('export needs at least one file, folder, pattern or - (stdin)');
   const { files, problems } = listInputs(positionals, io.cwd, opts.exclude);
   const task = { kind: 'export', format: opts.format, redactProse: opts.redact, shiftDays: opts.shiftDays, anchor: opts.anchor } as const;
-  const reports = await gather(files, task, io, new NoteWorker(io.cwd, {}, exportRenderer), opts.progress, 'exporting');
+  const reports = await gather(files, task, io, new NoteWorker(io.cwd, {}, exportRenderer), opts.progress, 'exporting', opts.jobs);
 
   if (opts.format === 'csv') {
     io.stdout.write(csvHeader(exportColumns()));

@@ -9,7 +9,7 @@ import { readFileSync, writeFileSync } from 'node:fs';
 import { isMainThread, parentPort, workerData } from 'node:worker_threads';
 import { z } from 'zod';
 import { checkNote } from '../core/check-note';
-import { CAUTION, EXIT, HELP, parse, UsageError, validate, type Io } from './args';
+import { CAUTION, EXIT, HELP, jobsOption, parse, UsageError, validate, type Io } from './args';
 import { renderCheckDocs } from '../core/checks/docs';
 import { replaceBetween, withGeneratedTables } from '../core/fields/docs';
 import { COLUMNS_END, COLUMNS_START, renderColumnTable } from '../core/export/docs';
@@ -72,17 +72,18 @@ const checkOptions = z.object({
   quiet: z.boolean().default(false),
   maxWarnings: z.coerce.number().int().min(0).optional(),
   exclude: z.array(z.string().min(1).max(500)).max(100).default([]),
+  jobs: jobsOption,
   progress: z.boolean().default(true),
 });
 
 async function check(args: readonly string[], io: Io): Promise<number> {
-  const { positionals, values } = parse(args, { format: { type: 'string' }, quiet: { type: 'boolean' }, 'max-warnings': { type: 'string' }, exclude: { type: 'string', multiple: true }, 'no-progress': { type: 'boolean' } });
+  const { positionals, values } = parse(args, { format: { type: 'string' }, quiet: { type: 'boolean' }, 'max-warnings': { type: 'string' }, exclude: { type: 'string', multiple: true }, jobs: { type: 'string' }, 'no-progress': { type: 'boolean' } });
   if (values.help) { io.stdout.write(`${HELP.check}\n`); return EXIT.ok; }
-  const opts = validate(checkOptions, { format: values.format, quiet: values.quiet, maxWarnings: values['max-warnings'], exclude: values.exclude, progress: !values['no-progress'] });
+  const opts = validate(checkOptions, { format: values.format, quiet: values.quiet, maxWarnings: values['max-warnings'], exclude: values.exclude, jobs: values.jobs, progress: !values['no-progress'] });
   if (positionals.length === 0) throw new UsageError('check needs at least one file, folder, pattern or - (stdin)');
   const { files, problems } = listInputs(positionals, io.cwd, opts.exclude);
   const worker = new NoteWorker(io.cwd, {});
-  const reports = await gather(files, { kind: 'check', timepoints: opts.format === 'json' }, io, worker, opts.progress, 'checking');
+  const reports = await gather(files, { kind: 'check', timepoints: opts.format === 'json' }, io, worker, opts.progress, 'checking', opts.jobs);
   const outcomes: FileOutcome[] = [...problems.map((p) => ({ path: p.path, findings: [], problem: p.problem })), ...reports.map((r) => ({ path: r.path, findings: r.findings, problem: r.problem, ...(r.timepoints ? { timepoints: r.timepoints } : {}) }))];
   const p: Paint = paint(colourWanted(io.stdout, io.env));
   if (opts.format === 'json') io.stdout.write(`${renderCheckJson(outcomes)}\n`);

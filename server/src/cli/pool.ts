@@ -43,7 +43,12 @@ export interface PoolOptions {
   readonly onDone?: (done: number, total: number) => void;
 }
 
-export function workerCount(files: number, env: NodeJS.ProcessEnv): number {
+/**
+ * Worker threads for a run over `files` notes: `--jobs` when given, else the environment variable
+ * PNEUMARK_WORKERS, else one per core (up to 4) from PARALLEL_FROM notes on. 0 or 1: this thread only.
+ */
+export function workerCount(files: number, env: NodeJS.ProcessEnv, jobs?: number): number {
+  if (jobs !== undefined) return jobs;
   const forced = env.PNEUMARK_WORKERS;
   if (forced !== undefined && /^\d+$/.test(forced)) return Number(forced);
   if (files < PARALLEL_FROM) return 0;
@@ -109,10 +114,10 @@ export async function runAll(files: readonly string[], task: Task, local: NoteWo
 }
 
 /** Reads notes for a command with a progress bar, in parallel when there are many. */
-export async function gather(files: readonly string[], task: Task, io: Io, worker: NoteWorker, showProgress: boolean, label: string): Promise<FileReport[]> {
+export async function gather(files: readonly string[], task: Task, io: Io, worker: NoteWorker, showProgress: boolean, label: string, jobs?: number): Promise<FileReport[]> {
   const bar = progressBar(io.stderr, files.length, label, showProgress);
   try {
-    return await runAll(files, task, worker, io.stdin, { cwd: io.cwd, overrides: {}, workers: workerCount(files.length, io.env), onDone: (d, t) => bar.update(d, t) });
+    return await runAll(files, task, worker, io.stdin, { cwd: io.cwd, overrides: {}, workers: workerCount(files.length, io.env, jobs), onDone: (d, t) => bar.update(d, t) });
   } finally {
     bar.stop();
   }
