@@ -77,8 +77,10 @@ Prints (or writes) the documentation of every check, generated from the check re
 
 export class UsageError extends Error {}
 
+const JOBS = { message: 'expected a whole number from 0 to 64' };
+
 /** `--jobs N`: worker threads for check and export (0 or 1: this thread only). */
-export const jobsOption = z.coerce.number({ message: 'expected a whole number from 0 to 64' }).int({ message: 'expected a whole number from 0 to 64' }).min(0, { message: 'expected a whole number from 0 to 64' }).max(64, { message: 'expected a whole number from 0 to 64' }).optional();
+export const jobsOption = z.coerce.number(JOBS).int(JOBS).min(0, JOBS).max(64, JOBS).optional();
 
 type OptionSpec = Record<string, { type: 'string' | 'boolean'; short?: string; multiple?: boolean }>;
 

@@ -20,7 +20,7 @@ import { listInputs, readNote } from './inputs';
 import { gather, type WorkDone, type WorkItem } from './pool';
 import { renderCheckJson, renderCheckText, renderCheckSarif, type FileOutcome } from './render-check';
 import { renderShow } from './render-show';
-import { NoteWorker, packReport, type FileReport, type Task } from './work';
+import { NoteWorker, packReport, type Task } from './work';
 
 export async function run(argv: readonly string[], io: Io): Promise<number> {
   const [command, ...rest] = argv;
