@@ -1,6 +1,6 @@
 // The command line over folders of notes: patterns, exclusions, limits, formatting in place,
 // and the same output whatever the parallelism.
-import { spawnSync } from 'node:child_process';
+import { spawn, spawnSync } from 'node:child_process';
 import { cpSync, mkdirSync, mkdtempSync, readFileSync, readdirSync, utimesSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -162,6 +162,28 @@ describe('fmt', () => {
     writeFileSync(file, `\uFEFF${messy.replace(/\n/g, '\r\n')}`);
     expect(await run(['fmt', '--write', 'a.pneu'], io(dir))).toBe(0);
     expect(readFileSync(file, 'utf8')).toBe(`\uFEFF${tidy.replace(/\n/g, '\r\n')}`);
+  });
+});
+
+describe('big outputs', () => {
+  it('stream a note at a time to a slow reader, the same as a run in one thread (built command)', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'pneumark-stream-'));
+    for (let i = 0; i < 60; i++) writeFileSync(join(dir, `note-${String(i).padStart(2, '0')}.pneu`), `@ 08:00\noxygen fio2 0.4\nvitals spo2 ${90 + (i % 9)}\nabg 7.3${i % 10}/4${i % 10}/${60 + i}/24\n@ +1h\nvitals hr ${70 + i}\n`);
+    const cli = join(process.cwd(), 'dist/cli.js');
+    for (const args of [['check', '--format', 'json', '.'], ['export', '--format', 'fhir', '.']]) {
+      const single = spawnSync(process.execPath, [cli, ...args, '--jobs', '0'], { cwd: dir, encoding: 'utf8', maxBuffer: 1 << 28 });
+      // A reader that pauses: the command's writes fill the pipe and it has to wait for drain.
+      const child = spawn(process.execPath, [cli, ...args, '--jobs', '2'], { cwd: dir });
+      const chunks: Buffer[] = [];
+      child.stdout.on('data', (chunk: Buffer) => {
+        chunks.push(chunk);
+        child.stdout.pause();
+        setTimeout(() => child.stdout.resume(), 2);
+      });
+      const code = await new Promise<number | null>((resolve) => child.on('close', resolve));
+      expect(code).toBe(single.status);
+      expect(Buffer.concat(chunks).toString('utf8')).toBe(single.stdout);
+    }
   });
 });
 

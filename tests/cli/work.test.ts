@@ -7,7 +7,11 @@ import { describe, expect, it } from 'vitest';
 import { checkNote } from '../../server/src/core/check-note';
 import type { Finding } from '../../server/src/core/types';
 import { readNote } from '../../server/src/cli/inputs';
-import { batchSize, PARALLEL_FROM, workerCount } from '../../server/src/cli/pool';
+import { batchSize, nextBatchSize, PARALLEL_FROM, runAll, workerCount } from '../../server/src/cli/pool';
+import { Output } from '../../server/src/cli/output';
+import { CheckJsonWriter, jsonFileEntry, toJsonFinding, type FileOutcome } from '../../server/src/cli/render-check';
+import { NoteWorker } from '../../server/src/cli/work';
+import { EventEmitter } from 'node:events';
 import { run } from '../../server/src/cli/main';
 import { availableParallelism } from 'node:os';
 import { Writable } from 'node:stream';
@@ -50,6 +54,86 @@ describe('batches for workers', () => {
     expect(batchSize(200, 2)).toBe(12);
     expect(batchSize(10000, 2)).toBe(64);
     expect(batchSize(0, 0)).toBe(1);
+  });
+});
+
+describe('batch sizes from the time a note takes', () => {
+  it('start small, then aim at about 25 ms of work per batch, within the most allowed', () => {
+    expect(nextBatchSize(Number.NaN, 64)).toBe(4);
+    expect(nextBatchSize(Number.NaN, 2)).toBe(2);
+    expect(nextBatchSize(0.3, 64)).toBe(64); // a note checked in 0.3 ms: the most allowed
+    expect(nextBatchSize(5, 64)).toBe(5);
+    expect(nextBatchSize(15, 64)).toBe(2); // a note with its timepoints as JSON
+    expect(nextBatchSize(400, 64)).toBe(1);
+    expect(nextBatchSize(0, 64)).toBe(64);
+  });
+});
+
+describe('output written a note at a time', () => {
+  const outcomes = (): FileOutcome[] => [
+    { path: 'missing.pneu', findings: [], problem: 'no such file or folder' },
+    { path: 'ward/a.pneu', findings: checkNote('@ 08:00\nvitals spo2 104\nabg 7.21/24/95/9.5\n').findings, problem: null, timepoints: [{ label: '08:00', values: [{ field: 'spo2', value: 104 }] }] },
+    { path: 'ward/b.pneu', findings: [], problem: null, timepoints: [] },
+  ];
+  const whole = (list: FileOutcome[]) => {
+    const count = (severity: string) => list.reduce((n, o) => n + o.findings.filter((f) => f.severity === severity).length, 0);
+    return JSON.stringify({
+      pneumark: 1,
+      files: list.map((o) => ({ path: o.path, problem: o.problem, findings: o.findings.map(toJsonFinding), ...(o.timepoints ? { timepoints: o.timepoints } : {}) })),
+      summary: { files: list.length, unreadable: list.filter((o) => o.problem).length, errors: count('error'), warnings: count('warning'), information: count('information'), hints: count('hint') },
+    }, null, 2);
+  };
+  const written = (list: FileOutcome[]) => {
+    let text = '';
+    const writer = new CheckJsonWriter({ write: (s: string) => { text += s; } });
+    for (const o of list) writer.file(o);
+    writer.end();
+    return text;
+  };
+
+  it('is byte for byte the JSON of the whole output, with or without notes, and with entries written out by a worker', () => {
+    for (const list of [outcomes(), outcomes().slice(0, 1), []]) expect(written(list)).toBe(whole(list));
+    const byWorker = outcomes().map((o) => ({ ...o, entry: jsonFileEntry(o), timepoints: undefined }));
+    expect(written(byWorker)).toBe(whole(outcomes()));
+  });
+
+  it('waits for a full stream to drain before more is read', async () => {
+    const stream = Object.assign(new EventEmitter(), { full: false, write(_s: string) { return !this.full; } });
+    const output = new Output(stream);
+    output.write('small');
+    let drained = false;
+    await output.ready();
+    stream.full = true;
+    output.write('big');
+    const waiting = output.ready().then(() => { drained = true; });
+    await new Promise((r) => setImmediate(r));
+    expect(drained).toBe(false);
+    stream.full = false;
+    stream.emit('drain');
+    await waiting;
+    expect(drained).toBe(true);
+    // A plain writer (no drain event) never holds the run up.
+    const plain = new Output({ write: () => false });
+    plain.write('x');
+    await plain.ready();
+  });
+
+  it('hands reports over in the order of the notes, and reads no note while the output is full', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'pneumark-order-'));
+    const files = ['a.pneu', 'b.pneu', 'c.pneu', 'd.pneu'];
+    for (const f of files) writeFileSync(join(dir, f), '@ 08:00\nvitals hr 80\n');
+    const seen: string[] = [];
+    let holds = 0;
+    const reports = await runAll(files, { kind: 'check', timepoints: false }, new NoteWorker(dir, {}), () => Buffer.alloc(0), {
+      cwd: dir,
+      overrides: {},
+      workers: 0,
+      inOrder: (r) => { seen.push(r.path); return { path: r.path, problem: null, findings: [] }; },
+      ready: async () => { holds++; expect(seen).toHaveLength(holds - 1); },
+    });
+    expect(seen).toEqual(files);
+    expect(holds).toBe(files.length);
+    expect(reports.map((r) => r.path)).toEqual(files);
   });
 });
 

@@ -11,8 +11,9 @@ import { anchorProblem, toFhirBundle } from '../core/export/fhir';
 import { toJsonl } from '../core/export/jsonl';
 import { EXIT, HELP, jobsOption, parse, UsageError, validate, type Io } from './args';
 import { listInputs } from './inputs';
+import { Output } from './output';
 import { gather } from './pool';
-import { NoteWorker, type ExportRenderer } from './work';
+import { NoteWorker, type ExportRenderer, type FileReport } from './work';
 
 const exportOptions = z.object({
   format: z.enum(['csv', 'jsonl', 'fhir'], { message: 'choose csv, jsonl or fhir' }),
@@ -45,17 +46,29 @@ export async function runExport(args: readonly string[], io: Io): Promise<number
   if (positionals.length === 0) throw new UsageError('export needs at least one file, folder, pattern or - (stdin)');
   const { files, problems } = listInputs(positionals, io.cwd, opts.exclude);
   const task = { kind: 'export', format: opts.format, redactProse: opts.redact, shiftDays: opts.shiftDays, anchor: opts.anchor } as const;
-  const reports = await gather(files, task, io, new NoteWorker(io.cwd, {}, exportRenderer), opts.progress, 'exporting', opts.jobs);
-
-  if (opts.format === 'csv') {
-    io.stdout.write(csvHeader(exportColumns()));
-    for (const r of reports) if (typeof r.payload === 'string') io.stdout.write(r.payload);
-  } else if (opts.format === 'jsonl') {
-    for (const r of reports) if (typeof r.payload === 'string' && r.payload.length > 0) io.stdout.write(r.payload.endsWith('\n') ? r.payload : `${r.payload}\n`);
-  } else {
-    const bundles = reports.filter((r) => r.payload).map((r) => JSON.stringify(r.payload, null, 2));
-    io.stdout.write(`[\n${bundles.join(',\n')}\n]\n`);
-  }
+  // Each note's piece is written as soon as it and the notes before it are in, then let go: an
+  // export of a big folder is larger than one string can hold, and need not sit in memory.
+  const output = new Output(io.stdout);
+  let bundles = 0;
+  const write = (r: FileReport): void => {
+    const payload = r.payload;
+    if (opts.format === 'csv') {
+      if (typeof payload === 'string') output.write(payload);
+    } else if (opts.format === 'jsonl') {
+      if (typeof payload === 'string' && payload.length > 0) output.write(payload.endsWith('\n') ? payload : `${payload}\n`);
+    } else if (payload) {
+      output.write(`${bundles++ === 0 ? '' : ',\n'}${JSON.stringify(payload, null, 2)}`);
+    }
+  };
+  output.write(opts.format === 'csv' ? csvHeader(exportColumns()) : opts.format === 'fhir' ? '[\n' : '');
+  const reports = await gather(files, task, io, new NoteWorker(io.cwd, {}, exportRenderer), opts.progress && !io.stdout.isTTY, 'exporting', opts.jobs, {
+    inOrder: (r) => {
+      write(r);
+      return { path: r.path, problem: r.problem, findings: r.findings };
+    },
+    ready: () => output.ready(),
+  });
+  if (opts.format === 'fhir') output.write('\n]\n');
   for (const p of [...problems, ...reports.filter((r) => r.problem)]) io.stderr.write(`pneumark: ${p.path}: ${p.problem}\n`);
   if (problems.length > 0 || reports.some((r) => r.problem)) return EXIT.usage;
   return reports.some((r) => r.findings.some((f) => f.severity === 'error')) ? EXIT.findings : EXIT.ok;

@@ -17,10 +17,11 @@ import { colourWanted, paint, type Paint } from './colour';
 import { runExport, exportRenderer } from './export-command';
 import { runFmt } from './fmt-command';
 import { listInputs, readNote } from './inputs';
-import { gather, type WorkDone, type WorkItem } from './pool';
-import { renderCheckJson, renderCheckText, renderCheckSarif, type FileOutcome } from './render-check';
+import { gather, type BatchDone, type WorkDone, type WorkItem } from './pool';
+import { CheckJsonWriter, jsonFileEntry, renderCheckText, renderCheckSarif, type FileOutcome } from './render-check';
 import { renderShow } from './render-show';
-import { NoteWorker, packReport, type Task } from './work';
+import { Output } from './output';
+import { NoteWorker, packReport, type FileReport, type Task } from './work';
 
 export async function run(argv: readonly string[], io: Io): Promise<number> {
   const [command, ...rest] = argv;
@@ -83,11 +84,23 @@ async function check(args: readonly string[], io: Io): Promise<number> {
   if (positionals.length === 0) throw new UsageError('check needs at least one file, folder, pattern or - (stdin)');
   const { files, problems } = listInputs(positionals, io.cwd, opts.exclude);
   const worker = new NoteWorker(io.cwd, {});
-  const reports = await gather(files, { kind: 'check', timepoints: opts.format === 'json' }, io, worker, opts.progress, 'checking', opts.jobs);
-  const outcomes: FileOutcome[] = [...problems.map((p) => ({ path: p.path, findings: [], problem: p.problem })), ...reports.map((r) => ({ path: r.path, findings: r.findings, problem: r.problem, ...(r.timepoints ? { timepoints: r.timepoints } : {}) }))];
+  const unread: FileOutcome[] = problems.map((p) => ({ path: p.path, findings: [], problem: p.problem }));
+  // JSON (with every timepoint) is written a note at a time as the notes come in, in their order,
+  // and each note's timepoints are let go once written.
+  const output = new Output(io.stdout);
+  const json = opts.format === 'json' ? new CheckJsonWriter(output) : null;
+  if (json) for (const o of unread) json.file(o);
+  const streaming = json ? {
+    inOrder: (r: FileReport): FileReport => { json.file(r); return { path: r.path, problem: r.problem, findings: r.findings }; },
+    ready: () => output.ready(),
+  } : undefined;
+  const reports = await gather(files, { kind: 'check', timepoints: json !== null }, io, worker, opts.progress && !(json && io.stdout.isTTY), 'checking', opts.jobs, streaming);
+  const outcomes: FileOutcome[] = [...unread, ...reports];
   const p: Paint = paint(colourWanted(io.stdout, io.env));
-  if (opts.format === 'json') io.stdout.write(`${renderCheckJson(outcomes)}\n`);
-  else if (opts.format === 'sarif') io.stdout.write(`${renderCheckSarif(outcomes, opts.quiet)}\n`);
+  if (json) {
+    json.end();
+    io.stdout.write('\n');
+  } else if (opts.format === 'sarif') io.stdout.write(`${renderCheckSarif(outcomes, opts.quiet)}\n`);
   else io.stdout.write(`${renderCheckText(outcomes, p, opts.quiet)}\n`);
   for (const o of outcomes) if (o.problem) io.stderr.write(`pneumark: ${o.path}: ${o.problem}\n`);
   if (outcomes.some((o) => o.problem)) return EXIT.usage;
@@ -115,15 +128,23 @@ function docs(args: readonly string[], io: Io): number {
 function workerMain(): void {
   const data = workerData as { cwd: string; overrides: object; task: Task };
   const worker = new NoteWorker(data.cwd, data.overrides, exportRenderer);
+  // JSON output: the worker writes out each note's entry (see jsonFileEntry).
+  const written = (r: FileReport): FileReport => {
+    if (r.timepoints === undefined) return r;
+    const { timepoints: _written, ...rest } = r;
+    return { ...rest, entry: jsonFileEntry(r) };
+  };
   parentPort?.on('message', (batch: WorkItem[]) => {
+    const started = performance.now();
     const done: WorkDone[] = batch.map((m) => {
       try {
-        return { i: m.i, report: packReport(worker.run(m.f, data.task, () => Buffer.alloc(0))) };
+        return { i: m.i, report: packReport(written(worker.run(m.f, data.task, () => Buffer.alloc(0)))) };
       } catch (error) {
         return { i: m.i, report: packReport({ path: m.f, problem: `could not be analysed (${error instanceof Error ? error.message : String(error)})`, findings: [] }) };
       }
     });
-    parentPort?.postMessage(done);
+    const answer: BatchDone = { done, millis: performance.now() - started };
+    parentPort?.postMessage(answer);
   });
 }
 

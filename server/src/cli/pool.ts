@@ -25,14 +25,30 @@ export interface WorkDone {
   readonly i: number;
   readonly report: PackedReport;
 }
+/** A worker's answer to a batch: the reports, and the time the batch took it. */
+export interface BatchDone {
+  readonly done: readonly WorkDone[];
+  readonly millis: number;
+}
 
 /**
- * Notes per message to a worker. One note per message leaves a worker idle for a round trip per
- * note (as long as checking a small note); big batches leave one worker with the last long ones.
- * About eight batches per worker, from 1 to 64 notes.
+ * The most notes per message to a worker. One note per message leaves a worker idle for a round
+ * trip per note (as long as checking a small note); big batches leave one worker with the last
+ * long ones. About eight batches per worker, from 1 to 64 notes.
  */
 export function batchSize(notes: number, workers: number): number {
   return Math.max(1, Math.min(64, Math.floor(notes / (Math.max(1, workers) * 8))));
+}
+
+/** Notes in the first batches, before a worker has said how long a note takes. */
+const FIRST_BATCH = 4;
+/** Work per batch aimed at, in milliseconds: long enough to hide a round trip, short enough that what a batch sends back (the JSON of a note's timepoints can be a megabyte) stays small. */
+const BATCH_MS = 25;
+
+/** Notes for the next batch, from the time a note took so far (`perNote`, NaN when unknown) and the most allowed. */
+export function nextBatchSize(perNote: number, most: number): number {
+  if (Number.isNaN(perNote)) return Math.min(FIRST_BATCH, most);
+  return Math.max(1, Math.min(most, Math.round(BATCH_MS / Math.max(perNote, 1e-3))));
 }
 
 export interface PoolOptions {
@@ -41,6 +57,18 @@ export interface PoolOptions {
   /** Worker count; 0 or 1 runs in this thread. */
   readonly workers: number;
   readonly onDone?: (done: number, total: number) => void;
+  /**
+   * Called with each report in the order of the notes, as soon as it and every earlier one are in
+   * (so output can be written while later notes are still read); what it returns is kept in the
+   * report's place. A command that writes a big output per note keeps only what it needs after.
+   */
+  readonly inOrder?: (report: FileReport) => FileReport;
+  /**
+   * Resolves when the output can take more (see `Output`): no further note is read, here or in a
+   * worker, before it does, so a slow reader of the output holds the run up instead of the output
+   * piling up in memory.
+   */
+  readonly ready?: () => Promise<void>;
 }
 
 /**
@@ -64,14 +92,20 @@ export async function runAll(files: readonly string[], task: Task, local: NoteWo
   const reports: FileReport[] = new Array<FileReport>(files.length);
   const total = files.length;
   let done = 0;
+  let passed = 0;
   const finish = (i: number, report: FileReport) => {
     reports[i] = report;
     done++;
     options.onDone?.(done, total);
+    const inOrder = options.inOrder;
+    if (!inOrder) return;
+    for (let next = reports[passed]; passed < total && next !== undefined; next = reports[passed]) reports[passed++] = inOrder(next);
   };
   const parallel = options.workers > 1 && canUseWorkers();
+  const ready = options.ready ?? (() => Promise.resolve());
   if (!parallel) {
     for (let i = 0; i < files.length; i++) {
+      await ready();
       finish(i, local.run(files[i]!, task, stdin));
       if (i % 64 === 63) await new Promise((r) => setImmediate(r)); // let a progress bar draw
     }
@@ -83,41 +117,48 @@ export async function runAll(files: readonly string[], task: Task, local: NoteWo
     return false;
   });
   const workers = Math.min(options.workers, queue.length);
-  const size = batchSize(queue.length, workers);
+  const most = batchSize(queue.length, workers);
+  /** Milliseconds a worker spends per note, from the batches answered so far (NaN: none yet). */
+  let perNote = Number.NaN;
   let next = 0;
   await Promise.all(Array.from({ length: workers }, () => new Promise<void>((resolve, reject) => {
     const worker = new Worker(__filename, { workerData: { pneumarkWorker: true, cwd: options.cwd, overrides: options.overrides, task } });
     let inFlight = 0;
-    /** Sends the next batch; true when there was one. */
-    const feed = (): boolean => {
-      if (next >= queue.length) return false;
-      const batch: WorkItem[] = queue.slice(next, next + size);
-      next += batch.length;
-      inFlight++;
-      worker.postMessage(batch);
-      return true;
+    let closing = false;
+    /** Sends the next batch when there is one, else lets the worker go once it has answered all. */
+    const feed = (): void => {
+      if (closing) return;
+      if (next < queue.length) {
+        const batch: WorkItem[] = queue.slice(next, next + nextBatchSize(perNote, most));
+        next += batch.length;
+        inFlight++;
+        worker.postMessage(batch);
+      } else if (inFlight === 0) {
+        closing = true;
+        void worker.terminate().then(() => resolve());
+      }
     };
-    worker.on('message', (done: WorkDone[]) => {
+    worker.on('message', ({ done, millis }: BatchDone) => {
       inFlight--;
+      if (done.length > 0) perNote = Number.isNaN(perNote) ? millis / done.length : (perNote + millis / done.length) / 2;
       for (const d of done) finish(d.i, unpackReport(d.report));
-      if (!feed() && inFlight === 0) void worker.terminate().then(() => resolve());
+      ready().then(feed, reject);
     });
     worker.on('error', reject);
     worker.on('online', () => {
       // Two batches in flight: the worker starts the second while the first goes back and the
       // next one comes, so it never waits for a round trip through this thread.
       for (let k = 0; k < IN_FLIGHT; k++) feed();
-      if (inFlight === 0) void worker.terminate().then(() => resolve());
     });
   })));
   return reports;
 }
 
 /** Reads notes for a command with a progress bar, in parallel when there are many. */
-export async function gather(files: readonly string[], task: Task, io: Io, worker: NoteWorker, showProgress: boolean, label: string, jobs?: number): Promise<FileReport[]> {
+export async function gather(files: readonly string[], task: Task, io: Io, worker: NoteWorker, showProgress: boolean, label: string, jobs?: number, streaming?: Pick<PoolOptions, 'inOrder' | 'ready'>): Promise<FileReport[]> {
   const bar = progressBar(io.stderr, files.length, label, showProgress);
   try {
-    return await runAll(files, task, worker, io.stdin, { cwd: io.cwd, overrides: {}, workers: workerCount(files.length, io.env, jobs), onDone: (d, t) => bar.update(d, t) });
+    return await runAll(files, task, worker, io.stdin, { cwd: io.cwd, overrides: {}, workers: workerCount(files.length, io.env, jobs), onDone: (d, t) => bar.update(d, t), ...streaming });
   } finally {
     bar.stop();
   }

@@ -15,6 +15,8 @@ export interface FileOutcome {
   readonly problem: string | null;
   /** Timepoints with values and derived values (JSON output only). */
   readonly timepoints?: unknown[];
+  /** The note's entry in the JSON output, already written out (by a worker: see `jsonFileEntry`). */
+  readonly entry?: string;
 }
 
 const aliasOf = new Map(CHECKS.map((c) => [c.code, c.alias]));
@@ -76,26 +78,63 @@ export function toJsonFinding(f: Finding): JsonFinding {
   };
 }
 
-export function renderCheckJson(outcomes: readonly FileOutcome[]): string {
-  const total: SeverityCounts = { error: 0, warning: 0, information: 0, hint: 0 };
-  const files = outcomes.map((o) => {
+/**
+ * Writes the JSON output a note at a time (a folder of notes with their timepoints makes gigabytes
+ * of JSON: more than one string can hold): `file` for each note in order, then `end`. The bytes are
+ * those of `JSON.stringify` of the whole object with two-space indentation.
+ */
+export class CheckJsonWriter {
+  private readonly total: SeverityCounts = { error: 0, warning: 0, information: 0, hint: 0 };
+  private files = 0;
+  private unreadable = 0;
+
+  constructor(private readonly out: { write(s: string): unknown }) {
+    out.write('{\n  "pneumark": 1,\n  "files": [');
+  }
+
+  file(o: FileOutcome): void {
     const c = countSeverities(o.findings);
-    total.error += c.error;
-    total.warning += c.warning;
-    total.information += c.information;
-    total.hint += c.hint;
-    return {
-      path: o.path,
-      problem: o.problem,
-      findings: o.findings.map(toJsonFinding),
-      ...(o.timepoints ? { timepoints: o.timepoints } : {}),
-    };
-  });
-  return JSON.stringify({
-    pneumark: 1,
-    files,
-    summary: { files: outcomes.length, unreadable: outcomes.filter((o) => o.problem).length, errors: total.error, warnings: total.warning, information: total.information, hints: total.hint },
-  }, null, 2);
+    this.total.error += c.error;
+    this.total.warning += c.warning;
+    this.total.information += c.information;
+    this.total.hint += c.hint;
+    if (o.problem) this.unreadable++;
+    this.out.write(`${this.files++ === 0 ? '' : ','}\n    ${o.entry ?? jsonFileEntry(o)}`);
+  }
+
+  /** Closes the list of files and writes the summary (no line break after the closing brace). */
+  end(): void {
+    const t = this.total;
+    const summary = { files: this.files, unreadable: this.unreadable, errors: t.error, warnings: t.warning, information: t.information, hints: t.hint };
+    this.out.write(`${this.files === 0 ? '' : '\n  '}],\n  "summary": ${nested(summary, '  ')}\n}`);
+  }
+}
+
+/**
+ * One note's entry in the JSON output, as nested there. A worker writes it out itself: a string
+ * crosses to the main thread in one copy, where the timepoints as objects would be cloned one by one.
+ */
+export function jsonFileEntry(o: FileOutcome): string {
+  const file = {
+    path: o.path,
+    problem: o.problem,
+    findings: o.findings.map(toJsonFinding),
+    ...(o.timepoints ? { timepoints: o.timepoints } : {}),
+  };
+  return nested(file, '    ');
+}
+
+/** A value as `JSON.stringify(…, null, 2)` writes it nested at `indent` (line breaks only come from the layout). */
+function nested(value: unknown, indent: string): string {
+  return JSON.stringify(value, null, 2).split('\n').join(`\n${indent}`);
+}
+
+export function renderCheckJson(outcomes: readonly FileOutcome[]): string {
+  let text = '';
+  const writer = new CheckJsonWriter({ write: (s: string) => { text += s; } });
+  for (const o of outcomes) writer.file(o);
+  writer.end();
+  return text;
 }
 
 /** SARIF 2.1.0, for code-scanning tools (rules come from the check registry). */

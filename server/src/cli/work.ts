@@ -21,6 +21,8 @@ export interface FileReport {
   readonly findings: readonly Finding[];
   /** `check --format json`: the timepoints with values, derived values and readings. */
   readonly timepoints?: unknown[];
+  /** `check --format json` in a worker: the note's entry in the output, written out (the timepoints left out above). */
+  readonly entry?: string;
   /** `export`: what the format needs for this note (rows, lines or a bundle). */
   readonly payload?: unknown;
 }
