@@ -9,7 +9,10 @@ import type { Finding } from '../../server/src/core/types';
 import { readNote } from '../../server/src/cli/inputs';
 import { batchSize, nextBatchSize, PARALLEL_FROM, runAll, workerCount } from '../../server/src/cli/pool';
 import { Output } from '../../server/src/cli/output';
-import { CheckJsonWriter, jsonFileEntry, toJsonFinding, type FileOutcome } from '../../server/src/cli/render-check';
+import { CheckJsonWriter, jsonFileEntry, toJsonFinding, writeCheckSarif, writeCheckText, type FileOutcome } from '../../server/src/cli/render-check';
+import { toSarifLog } from '../../server/src/core/export';
+import { PNEUMARK_VERSION } from '../../server/src/core/version';
+import { paint } from '../../server/src/cli/colour';
 import { NoteWorker } from '../../server/src/cli/work';
 import { EventEmitter } from 'node:events';
 import { run } from '../../server/src/cli/main';
@@ -95,6 +98,29 @@ describe('output written a note at a time', () => {
     for (const list of [outcomes(), outcomes().slice(0, 1), []]) expect(written(list)).toBe(whole(list));
     const byWorker = outcomes().map((o) => ({ ...o, entry: jsonFileEntry(o), timepoints: undefined }));
     expect(written(byWorker)).toBe(whole(outcomes()));
+  });
+
+  it('writes SARIF and text in pieces, byte for byte as the whole, over megabytes of findings', async () => {
+    // Enough findings for several pieces of a megabyte: 40 notes of 60 impossible saturations each.
+    const note = `@ 08:00\n${Array.from({ length: 60 }, (_, k) => `vitals spo2 ${101 + k}`).join('\n')}\n`;
+    const findings = checkNote(note).findings;
+    const many: FileOutcome[] = [...Array.from({ length: 40 }, (_, k) => ({ path: `ward ${k}/n.pneu`, findings, problem: null })), { path: 'gone.pneu', findings: [], problem: 'no such file or folder' }];
+    for (const list of [many, outcomes(), []]) {
+      for (const quiet of [false, true]) {
+        let text = '';
+        let pieces = 0;
+        const sink = { write: (s: string) => { text += s; pieces++; }, ready: () => Promise.resolve() };
+        await writeCheckSarif(list, quiet, sink);
+        const files = list.map((o) => ({ path: o.path, findings: o.findings.filter((f) => !quiet || f.severity === 'error'), problem: o.problem }));
+        expect(text).toBe(JSON.stringify(toSarifLog(files, { toolVersion: PNEUMARK_VERSION }), null, 2));
+        if (list === many && !quiet) expect(pieces).toBeGreaterThan(2);
+        let lines = '';
+        await writeCheckText(list, paint(false), quiet, { write: (s: string) => { lines += s; }, ready: () => Promise.resolve() });
+        const expected = list.flatMap((o) => o.problem ? [`${o.path}: cannot check: ${o.problem}`] : o.findings.filter((f) => !quiet || f.severity === 'error').map((f) => `${o.path}:${f.range.start.line + 1}:${f.range.start.character + 1}`));
+        expect(lines.split('\n').slice(0, -2).map((l) => l.split('  ')[0])).toEqual(expected);
+        expect(lines).toMatch(/ notes? checked.*info\.\n$/);
+      }
+    }
   });
 
   it('waits for a full stream to drain before more is read', async () => {

@@ -18,7 +18,7 @@ import { runExport, exportRenderer } from './export-command';
 import { runFmt } from './fmt-command';
 import { listInputs, readNote } from './inputs';
 import { gather, type BatchDone, type WorkDone, type WorkItem } from './pool';
-import { CheckJsonWriter, jsonFileEntry, renderCheckText, renderCheckSarif, type FileOutcome } from './render-check';
+import { CheckJsonWriter, jsonFileEntry, writeCheckSarif, writeCheckText, type FileOutcome } from './render-check';
 import { renderShow } from './render-show';
 import { Output } from './output';
 import { NoteWorker, packReport, type FileReport, type Task } from './work';
@@ -100,8 +100,11 @@ async function check(args: readonly string[], io: Io): Promise<number> {
   if (json) {
     json.end();
     io.stdout.write('\n');
-  } else if (opts.format === 'sarif') io.stdout.write(`${renderCheckSarif(outcomes, opts.quiet)}\n`);
-  else io.stdout.write(`${renderCheckText(outcomes, p, opts.quiet)}\n`);
+  } else if (opts.format === 'sarif') {
+    await writeCheckSarif(outcomes, opts.quiet, output);
+    output.write('\n');
+  }
+  else await writeCheckText(outcomes, p, opts.quiet, output);
   for (const o of outcomes) if (o.problem) io.stderr.write(`pneumark: ${o.path}: ${o.problem}\n`);
   if (outcomes.some((o) => o.problem)) return EXIT.usage;
   if (outcomes.some((o) => o.findings.some((f) => f.severity === 'error'))) return EXIT.findings;

@@ -3,7 +3,7 @@
  * JSON: the stable shape documented in README.md ("JSON output"), version 1.
  */
 import { CHECKS } from '../core/checks/registry';
-import { toSarifLog } from '../core/export/sarif';
+import { sarifLogParts } from '../core/export/sarif';
 import { PNEUMARK_VERSION } from '../core/version';
 import type { Finding } from '../core/types';
 import type { Paint } from './colour';
@@ -21,29 +21,36 @@ export interface FileOutcome {
 
 const aliasOf = new Map(CHECKS.map((c) => [c.code, c.alias]));
 
-export function renderCheckText(outcomes: readonly FileOutcome[], p: Paint, quiet: boolean): string {
-  const lines: string[] = [];
+/**
+ * Text output: a line per finding (`--quiet`: errors only) and a line of totals, written in pieces
+ * of about a megabyte.
+ */
+export async function writeCheckText(outcomes: readonly FileOutcome[], p: Paint, quiet: boolean, out: Sink): Promise<void> {
   const total: SeverityCounts = { error: 0, warning: 0, information: 0, hint: 0 };
+  let piece = '';
   for (const o of outcomes) {
     if (o.problem) {
-      lines.push(`${o.path}: ${p.red('cannot check')}: ${o.problem}`);
+      piece += `${o.path}: ${p.red('cannot check')}: ${o.problem}\n`;
       continue;
     }
-    const findings = o.findings.filter((f) => !quiet || f.severity === 'error');
     const c = countSeverities(o.findings);
     total.error += c.error;
     total.warning += c.warning;
     total.information += c.information;
     total.hint += c.hint;
-    for (const f of findings) {
+    for (const f of o.findings) {
+      if (quiet && f.severity !== 'error') continue;
       const sev = f.severity === 'error' ? p.red('error') : f.severity === 'warning' ? p.yellow('warning') : p.blue(f.severity === 'information' ? 'info' : 'hint');
-      lines.push(`${o.path}:${f.range.start.line + 1}:${f.range.start.character + 1}  ${sev}  ${p.dim(`${f.code} ${aliasOf.get(f.code) ?? ''}`)}  ${f.message}`);
+      piece += `${o.path}:${f.range.start.line + 1}:${f.range.start.character + 1}  ${sev}  ${p.dim(`${f.code} ${aliasOf.get(f.code) ?? ''}`)}  ${f.message}\n`;
     }
+    if (piece.length < PIECE) continue;
+    out.write(piece);
+    piece = '';
+    await out.ready();
   }
   const checked = outcomes.filter((o) => !o.problem).length;
   const unreadable = outcomes.length - checked;
-  lines.push(`${checked} note${checked === 1 ? '' : 's'} checked${unreadable ? `, ${unreadable} could not be read` : ''}: ${total.error} error${total.error === 1 ? '' : 's'}, ${total.warning} warning${total.warning === 1 ? '' : 's'}, ${total.information} info.`);
-  return lines.join('\n');
+  out.write(`${piece}${checked} note${checked === 1 ? '' : 's'} checked${unreadable ? `, ${unreadable} could not be read` : ''}: ${total.error} error${total.error === 1 ? '' : 's'}, ${total.warning} warning${total.warning === 1 ? '' : 's'}, ${total.information} info.\n`);
 }
 
 export interface JsonFinding {
@@ -137,8 +144,37 @@ export function renderCheckJson(outcomes: readonly FileOutcome[]): string {
   return text;
 }
 
-/** SARIF 2.1.0, for code-scanning tools (rules come from the check registry). */
-export function renderCheckSarif(outcomes: readonly FileOutcome[], quiet: boolean): string {
+/** Where a long output goes: written in pieces, waiting while the reader is behind (see `Output`). */
+export interface Sink {
+  write(text: string): void;
+  ready(): Promise<void>;
+}
+
+/** Pieces of output gathered up to this many characters before they are written. */
+const PIECE = 1 << 20;
+
+/**
+ * SARIF 2.1.0, for code-scanning tools (rules come from the check registry), written a result at a
+ * time in pieces of about a megabyte (the log of a big folder is larger than one string can hold).
+ * The bytes are those of `JSON.stringify` of the whole log with two-space indentation.
+ */
+export async function writeCheckSarif(outcomes: readonly FileOutcome[], quiet: boolean, out: Sink): Promise<void> {
   const files = outcomes.map((o) => ({ path: o.path, findings: o.findings.filter((f) => !quiet || f.severity === 'error'), problem: o.problem }));
-  return JSON.stringify(toSarifLog(files, { toolVersion: PNEUMARK_VERSION }), null, 2);
+  const { log, resultsOf } = sarifLogParts(files, { toolVersion: PNEUMARK_VERSION });
+  const whole = JSON.stringify(log, null, 2);
+  // `results` is the last member of the only run: its empty list is the last one in the text.
+  const empty = '"results": []';
+  const at = whole.lastIndexOf(empty);
+  let piece = `${whole.slice(0, at)}"results": [`;
+  let count = 0;
+  for (const file of files) {
+    for (const result of resultsOf(file)) {
+      piece += `${count++ === 0 ? '' : ','}\n        ${nested(result, '        ')}`;
+      if (piece.length < PIECE) continue;
+      out.write(piece);
+      piece = '';
+      await out.ready();
+    }
+  }
+  out.write(`${piece}${count === 0 ? '' : '\n      '}]${whole.slice(at + empty.length)}`);
 }

@@ -114,6 +114,18 @@ function sarifResult(finding: Finding, location: Sarif.ArtifactLocation, ruleInd
 
 /** A SARIF log of the findings of every readable file, and a notification for every unreadable one. */
 export function toSarifLog(files: readonly SarifFile[], options?: SarifOptions): Sarif.Log {
+  const parts = sarifLogParts(files, options);
+  const results = parts.log.runs[0]!.results!;
+  for (const file of files) for (const r of parts.resultsOf(file)) results.push(r);
+  return parts.log;
+}
+
+/**
+ * The log in two parts, for a writer that goes a file at a time (a big folder's log is larger than
+ * one string can hold): the log with an empty `results` list, the last member of its only run, and
+ * the results of each file of `files`, made when asked for.
+ */
+export function sarifLogParts(files: readonly SarifFile[], options?: SarifOptions): { readonly log: Sarif.Log; resultsOf(file: SarifFile): Sarif.Result[] } {
   const ruleIndex = new Map(CHECKS.map((c, i) => [c.code, i]));
   const artifacts: Sarif.Artifact[] = [];
   const artifactIndex = new Map<string, number>();
@@ -128,14 +140,12 @@ export function toSarifLog(files: readonly SarifFile[], options?: SarifOptions):
     return { uri, index };
   };
 
-  const results: Sarif.Result[] = [];
   const notifications: Sarif.Notification[] = [];
   for (const file of files) {
     const location = locationOf(file.path);
     if (file.problem !== null) {
       notifications.push({ level: 'error', message: { text: `${file.path}: cannot check: ${file.problem}` }, locations: [{ physicalLocation: { artifactLocation: location } }] });
     }
-    for (const finding of file.findings ?? file.result?.findings ?? []) results.push(sarifResult(finding, location, ruleIndex));
   }
 
   const invocation: Sarif.Invocation = {
@@ -143,7 +153,7 @@ export function toSarifLog(files: readonly SarifFile[], options?: SarifOptions):
     ...(notifications.length ? { toolExecutionNotifications: notifications } : {}),
   };
 
-  return {
+  const log: Sarif.Log = {
     $schema: SARIF_SCHEMA,
     version: '2.1.0',
     runs: [{
@@ -157,7 +167,14 @@ export function toSarifLog(files: readonly SarifFile[], options?: SarifOptions):
       invocations: [invocation],
       ...(artifacts.length ? { artifacts } : {}),
       columnKind: 'utf16CodeUnits',
-      results,
+      results: [],
     }],
+  };
+  return {
+    log,
+    resultsOf(file: SarifFile): Sarif.Result[] {
+      const location = locationOf(file.path);
+      return (file.findings ?? file.result?.findings ?? []).map((finding) => sarifResult(finding, location, ruleIndex));
+    },
   };
 }
