@@ -87,10 +87,18 @@ function docsUri(): string {
 const FIRST_STEP_LINES = 500;
 const STEP_BUDGET_MS = 25;
 
-/** The size of the next step: scaled to the budget by the last step's time, within limits. */
-export function nextStepLines(lines: number, tookMs: number): number {
+/**
+ * The size of the next step: scaled to the budget by the last step's time, within limits, and at
+ * least a sixteenth of the lines read so far. Each step also goes over what was read before it
+ * (the session's update looks at every line and timepoint of the note so far), so on a note of
+ * hundreds of thousands of lines steps held to the budget would shrink to a few lines each and
+ * the reading would take minutes; with the floor the number of steps grows with the logarithm
+ * of the note's length, and the whole reading stays linear in it.
+ */
+export function nextStepLines(lines: number, tookMs: number, readLines = 0): number {
   const scaled = tookMs > 0 ? (lines * STEP_BUDGET_MS) / tookMs : lines * 2;
-  return Math.round(Math.min(lines * 2, Math.max(100, Math.min(8000, scaled))));
+  const budgeted = Math.min(lines * 2, Math.max(100, Math.min(8000, scaled)));
+  return Math.round(Math.max(budgeted, readLines / 16));
 }
 
 export function startServer(connection: Connection, collector: IdleCollector = new IdleCollector()): void {
@@ -224,6 +232,8 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     const steps = state.session.steps(text, FIRST_STEP_LINES);
     const timing = { steps: 0, longestStepMillis: 0 };
     let lines = FIRST_STEP_LINES;
+    /** Lines asked for so far (each step reads at least what it is asked, up to a timepoint line). */
+    let read = 0;
     const endReading = () => closeGate(state);
     const step = () => {
       state.timer = null;
@@ -241,7 +251,8 @@ export function startServer(connection: Connection, collector: IdleCollector = n
       const took = performance.now() - stepStarted;
       timing.steps++;
       timing.longestStepMillis = Math.max(timing.longestStepMillis, took);
-      lines = nextStepLines(lines, took);
+      read += lines;
+      lines = nextStepLines(lines, took, read);
       if (next.done) {
         publish(uri, state, version, started, next.value.findings.map((f) => diagnosticOf(f, uri)), timing);
         endReading();
