@@ -138,10 +138,11 @@ export async function runAll(files: readonly string[], task: Task, local: NoteWo
         void worker.terminate().then(() => resolve());
       }
     };
-    worker.on('message', ({ done, millis }: BatchDone) => {
+    worker.on('message', (answer: BatchDone) => {
       inFlight--;
-      if (done.length > 0) perNote = Number.isNaN(perNote) ? millis / done.length : (perNote + millis / done.length) / 2;
-      for (const d of done) finish(d.i, unpackReport(d.report));
+      const count = answer.done.length;
+      if (count > 0) perNote = Number.isNaN(perNote) ? answer.millis / count : (perNote + answer.millis / count) / 2;
+      for (const d of answer.done) finish(d.i, unpackReport(d.report));
       ready().then(feed, reject);
     });
     worker.on('error', reject);
