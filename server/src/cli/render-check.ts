@@ -1,6 +1,7 @@
 /**
  * `pneumark check` output. Text: one line per finding, `path:line:col  severity  code  message`.
- * JSON: the stable shape documented in README.md ("JSON output"), version 1.
+ * JSON: the stable shape documented in README.md ("JSON output"), version 1. SARIF 2.1.0. All
+ * three are written in pieces (a big folder's output is larger than one string can hold).
  */
 import { CHECKS } from '../core/checks/registry';
 import { sarifLogParts } from '../core/export/sarif';
@@ -20,6 +21,15 @@ export interface FileOutcome {
 }
 
 const aliasOf = new Map(CHECKS.map((c) => [c.code, c.alias]));
+
+/** Where a long output goes: written in pieces, waiting while the reader is behind (see `Output`). */
+export interface Sink {
+  write(text: string): void;
+  ready(): Promise<void>;
+}
+
+/** Pieces of output gathered up to this many characters before they are written. */
+const PIECE = 1 << 20;
 
 /**
  * Text output: a line per finding (`--quiet`: errors only) and a line of totals, written in pieces
@@ -143,15 +153,6 @@ export function renderCheckJson(outcomes: readonly FileOutcome[]): string {
   writer.end();
   return text;
 }
-
-/** Where a long output goes: written in pieces, waiting while the reader is behind (see `Output`). */
-export interface Sink {
-  write(text: string): void;
-  ready(): Promise<void>;
-}
-
-/** Pieces of output gathered up to this many characters before they are written. */
-const PIECE = 1 << 20;
 
 /**
  * SARIF 2.1.0, for code-scanning tools (rules come from the check registry), written a result at a
