@@ -1,7 +1,7 @@
 // The command line over folders of notes: patterns, exclusions, limits, formatting in place,
 // and the same output whatever the parallelism.
 import { spawn, spawnSync } from 'node:child_process';
-import { cpSync, mkdirSync, mkdtempSync, readFileSync, readdirSync, utimesSync, writeFileSync } from 'node:fs';
+import { cpSync, mkdirSync, mkdtempSync, readFileSync, readdirSync, symlinkSync, utimesSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { Writable } from 'node:stream';
@@ -58,6 +58,21 @@ describe('finding notes', () => {
     const ignored = io(dir);
     await run(['check', '.'], ignored);
     expect(ignored.out()).toMatch(/2 notes checked/);
+  });
+
+  it('checks a note once however many paths reach it (symbolic links, a path named twice)', async () => {
+    const dir = corpus();
+    const outside = mkdtempSync(join(tmpdir(), 'pneumark-linked-'));
+    writeFileSync(join(outside, 'elsewhere.pneu'), '@ 08:00\nvitals spo2 103\n');
+    symlinkSync(join(dir, 'ward'), join(dir, 'archive', 'ward-again'), 'dir'); // a folder linked below its parent's sibling
+    symlinkSync(dir, join(dir, 'ward', 'a', 'loop'), 'dir'); // a loop back to the top
+    symlinkSync(join(outside, 'elsewhere.pneu'), join(dir, 'archive', 'linked.pneu'), 'file');
+    const out = io(dir);
+    await run(['check', '.', 'ward/two.pneu', './ward/two.pneu'], out);
+    const paths = [...new Set(out.out().split('\n').filter((l) => /\.pneu:\d/.test(l)).map((l) => l.split(':')[0]))];
+    // Each note under the first of its paths in sorted order; the linked note from outside once.
+    expect(paths).toEqual(['archive/linked.pneu', 'archive/old.pneu', 'archive/ward-again/three.pneu', 'archive/ward-again/two.pneu']);
+    expect(out.out()).toMatch(/5 notes checked/); // the four notes of the folder and the linked one
   });
 
   it('says when a pattern matches nothing, and goes on', async () => {

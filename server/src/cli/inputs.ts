@@ -5,8 +5,8 @@
  * depends on the file system or on parallelism. Unreadable, binary or huge files give a one-line
  * problem and the run goes on.
  */
-import { closeSync, existsSync, fstatSync, openSync, readFileSync, readSync, statSync } from 'node:fs';
-import { isAbsolute, join, relative, sep } from 'node:path';
+import { closeSync, existsSync, fstatSync, openSync, readFileSync, readSync, realpathSync, statSync } from 'node:fs';
+import { isAbsolute, join, normalize, relative, sep } from 'node:path';
 import ignore from 'ignore';
 import { globSync, isDynamicPattern } from 'tinyglobby';
 
@@ -56,13 +56,34 @@ export function listInputs(args: readonly string[], cwd: string, exclude: readon
         found.add(base === '.' ? toPosix(m) : `${base}/${toPosix(m)}`);
       }
     } else {
-      found.add(isAbsolute(arg) ? toPosix(relative(cwd, abs)) || toPosix(abs) : toPosix(arg));
+      found.add(isAbsolute(arg) ? toPosix(relative(cwd, abs)) || toPosix(abs) : toPosix(normalize(arg)));
     }
   }
   const filter = exclusions(cwd, exclude);
-  const files = [...found].filter((f) => !filter(f)).sort(comparePaths);
+  const files = onePathPerNote([...found].filter((f) => !filter(f)).sort(comparePaths), cwd);
   if (stdin) files.push('-');
   return { files, problems };
+}
+
+/**
+ * Each note once, under the first of its paths in sorted order: a folder reached through a
+ * symbolic link (or a note linked into a folder, or named twice) would otherwise be checked and
+ * exported again, and a dataset would count its rows twice. A path that cannot be resolved is kept
+ * (reading it reports why).
+ */
+function onePathPerNote(paths: readonly string[], cwd: string): string[] {
+  const seen = new Set<string>();
+  return paths.filter((path) => {
+    let real: string;
+    try {
+      real = realpathSync.native(isAbsolute(path) ? path : join(cwd, path));
+    } catch {
+      return true;
+    }
+    if (seen.has(real)) return false;
+    seen.add(real);
+    return true;
+  });
 }
 
 /** Byte-wise order of paths (the same on every machine and locale). */
