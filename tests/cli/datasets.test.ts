@@ -202,6 +202,21 @@ describe('big outputs', () => {
   });
 });
 
+describe('a reader that stops early', () => {
+  it('stops the command at once and quietly, with exit code 2 (built command)', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'pneumark-head-'));
+    for (let i = 0; i < 30; i++) writeFileSync(join(dir, `note-${String(i).padStart(2, '0')}.pneu`), `@ 08:00\nabg 7.3${i % 10}/4${i % 10}/${60 + i}/24\n`);
+    const child = spawn(process.execPath, [join(process.cwd(), 'dist/cli.js'), 'check', '--format', 'json', '.'], { cwd: dir });
+    let err = '';
+    child.stderr.on('data', (chunk: Buffer) => { err += chunk.toString(); });
+    // Like `| head -c 100`: read the first chunk, then close the pipe.
+    child.stdout.once('data', () => child.stdout.destroy());
+    const code = await new Promise<number | null>((resolve) => child.on('close', resolve));
+    expect(code).toBe(2);
+    expect(err).toBe('');
+  });
+});
+
 describe('parallel runs', () => {
   it('give byte-identical output with and without workers (built command)', () => {
     const dir = mkdtempSync(join(tmpdir(), 'pneumark-par-'));

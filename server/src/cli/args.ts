@@ -32,7 +32,8 @@ or - for standard input. A .pneuignore file in the working folder excludes paths
 Run \`pneumark COMMAND --help\` for a command's options.
 
 Exit codes: 0 clean; 1 findings at error level, more warnings than --max-warnings, or notes that
-fmt --check would change; 2 a usage error or a note that could not be read.
+fmt --check would change; 2 a usage error, a note that could not be read, or standard output
+closed early (e.g. by head).
 
 ${CAUTION}`,
   show: `Usage: pneumark show FILE

@@ -154,6 +154,12 @@ function workerMain(): void {
 if (!isMainThread && (workerData as { pneumarkWorker?: boolean } | null)?.pneumarkWorker) {
   workerMain();
 } else if (require.main === module) {
+  // A reader that stops early (`| head`) closes the pipe: stop at once and quietly, as other
+  // command-line tools do, with the exit code of an I/O error.
+  process.stdout.on('error', (error: NodeJS.ErrnoException) => {
+    if (error.code === 'EPIPE') process.exit(EXIT.usage);
+    throw error;
+  });
   void run(process.argv.slice(2), {
     cwd: process.cwd(),
     env: process.env,
