@@ -171,10 +171,13 @@ export class NoteSession {
     const middle = tail > 0 ? split.lines.slice(0, -1) : split.lines;
     const n = head + middle.length + tail;
     const nodes = new Array<LineNode>(n);
-    const starts = new Array<number>(n);
+    // The line starts are the session's own: with as many lines as before (an edit within lines)
+    // they are updated in place. A big note's list is a large object, and a new one per edit costs
+    // page faults on a small machine.
+    const starts = n === m ? oldStarts : new Array<number>(n);
     for (let i = 0; i < head; i++) {
       nodes[i] = before[i]!;
-      starts[i] = oldStarts[i]!;
+      if (starts !== oldStarts) starts[i] = oldStarts[i]!;
     }
     for (let k = 0; k < middle.length; k++) {
       const i = head + k;
@@ -185,6 +188,7 @@ export class NoteSession {
       const i = n - tail + k;
       const node = before[m - tail + k]!;
       nodes[i] = node.line === i ? node : { ...node, line: i };
+      // In place (n === m) the index is the same on both sides: each start is read before it is written.
       starts[i] = oldStarts[m - tail + k]! + delta;
     }
     this.starts = starts;
