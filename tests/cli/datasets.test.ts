@@ -9,6 +9,7 @@ import { describe, expect, it } from 'vitest';
 import type { Io } from '../../server/src/cli/args';
 import { fmtHooks } from '../../server/src/cli/fmt-command';
 import { run } from '../../server/src/cli/main';
+import { generateNote } from '../bench/generate.mjs';
 
 function io(cwd: string, stdinText = ''): Io & { out: () => string; err: () => string } {
   let out = '';
@@ -200,6 +201,25 @@ describe('big outputs', () => {
       expect(Buffer.concat(chunks).toString('utf8')).toBe(single.stdout);
     }
   });
+});
+
+describe('output larger than memory', () => {
+  it('is written with a heap far smaller than the output (built command)', async () => {
+    // 150 notes of 20 timepoints: about 65 MB of JSON, written by a process allowed 48 MB of heap.
+    const dir = mkdtempSync(join(tmpdir(), 'pneumark-big-'));
+    for (let i = 0; i < 150; i++) writeFileSync(join(dir, `note-${String(i).padStart(3, '0')}.pneu`), generateNote(20, i + 1));
+    const child = spawn(process.execPath, ['--max-old-space-size=48', join(process.cwd(), 'dist/cli.js'), 'check', '--format', 'json', '--jobs', '0', '.'], { cwd: dir });
+    let bytes = 0;
+    let tail = '';
+    child.stdout.on('data', (chunk: Buffer) => { bytes += chunk.length; tail = (tail + chunk.toString('latin1')).slice(-200); });
+    let err = '';
+    child.stderr.on('data', (chunk: Buffer) => { err += chunk.toString(); });
+    const code = await new Promise<number | null>((resolve) => child.on('close', resolve));
+    expect(err).toBe('');
+    expect(code).toBe(0);
+    expect(bytes).toBeGreaterThan(48 * 1024 * 1024);
+    expect(tail).toMatch(/"summary": \{\n    "files": 150,[\s\S]*\n\}\n$/);
+  }, 60_000);
 });
 
 describe('a reader that stops early', () => {
