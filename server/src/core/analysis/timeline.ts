@@ -113,7 +113,9 @@ export function buildTimelineIncremental(tree: NoteTree, settings: Settings, pre
     } else {
       result = processBlock(lines, start, end, index, state, settings, tree, old?.result.stateOut ?? null, reading);
     }
-    entries.push({ start, index, endLine, stateIn: state, result });
+    // A block taken from the cache with the very same incoming state keeps its entry (a big note
+    // has thousands of blocks, and an edit changes one).
+    entries.push(old && result === old.result && old.stateIn === state ? old : { start, index, endLine, stateIn: state, result });
     if (result.timepoint) timepoints.push(result.timepoint);
     for (const s of result.header) header.push(s);
     for (const issue of result.issues) readIssues.push(issue);
