@@ -7,9 +7,9 @@ import { describe, expect, it } from 'vitest';
 import { checkNote } from '../../server/src/core/check-note';
 import type { Finding } from '../../server/src/core/types';
 import { readNote } from '../../server/src/cli/inputs';
-import { batchSize, nextBatchSize, PARALLEL_FROM, runAll, workerCount } from '../../server/src/cli/pool';
+import { batchSize, handover, nextBatchSize, PARALLEL_FROM, runAll, workerCount } from '../../server/src/cli/pool';
 import { Output } from '../../server/src/cli/output';
-import { CheckJsonWriter, jsonFileEntry, toJsonFinding, writeCheckSarif, writeCheckText, type FileOutcome } from '../../server/src/cli/render-check';
+import { CheckJsonWriter, jsonFileEntry, jsonFileEntryOrProblem, TOO_MUCH_JSON, toJsonFinding, writeCheckSarif, writeCheckText, type FileOutcome } from '../../server/src/cli/render-check';
 import { toSarifLog } from '../../server/src/core/export';
 import { PNEUMARK_VERSION } from '../../server/src/core/version';
 import { paint } from '../../server/src/cli/colour';
@@ -123,6 +123,25 @@ describe('output written a note at a time', () => {
     }
   });
 
+  it('gives a note whose timepoints make more JSON than a string holds a problem instead of them', () => {
+    // What JSON.stringify throws past the longest string V8 makes (hundreds of megabytes).
+    const tooBig = { toJSON() { throw new RangeError('Invalid string length'); } };
+    const findings = checkNote('@ 08:00\nvitals spo2 104\n').findings;
+    const { entry, problem } = jsonFileEntryOrProblem({ path: 'huge.pneu', findings, problem: null, timepoints: [tooBig] });
+    expect(problem).toBe(TOO_MUCH_JSON);
+    expect(JSON.parse(entry)).toEqual({ path: 'huge.pneu', problem: TOO_MUCH_JSON, findings: findings.map(toJsonFinding) });
+    let text = '';
+    const writer = new CheckJsonWriter({ write: (s: string) => { text += s; } });
+    expect(writer.file({ path: 'huge.pneu', findings, problem: null, timepoints: [tooBig] })).toBe(TOO_MUCH_JSON);
+    expect(writer.file(outcomes()[1]!)).toBeNull();
+    writer.end();
+    const parsed = JSON.parse(text) as { summary: { files: number; unreadable: number } };
+    expect(parsed.summary).toMatchObject({ files: 2, unreadable: 1 });
+    // Any other failure is not mistaken for size.
+    const broken = { toJSON() { throw new TypeError('broken'); } };
+    expect(() => jsonFileEntryOrProblem({ path: 'b.pneu', findings: [], problem: null, timepoints: [broken] })).toThrow(TypeError);
+  });
+
   it('waits for a full stream to drain before more is read', async () => {
     const stream = Object.assign(new EventEmitter(), { full: false, write(_s: string) { return !this.full; } });
     const output = new Output(stream);
@@ -142,6 +161,31 @@ describe('output written a note at a time', () => {
     const plain = new Output({ write: () => false });
     plain.write('x');
     await plain.ready();
+  });
+
+  it('reads no more notes while too many are done behind a slow one, and goes on once it is in', async () => {
+    const handed: number[] = [];
+    const report = (i: number) => ({ path: `n${i}.pneu`, problem: null, findings: [] });
+    const h = handover(10, { inOrder: (r) => { handed.push(Number(r.path.slice(1, -5))); return r; } }, 3);
+    // Notes 1 to 4 are done while note 0 is still being read: four held back, one over the limit.
+    for (const i of [1, 2, 3]) h.finish(i, report(i));
+    let free = false;
+    await h.mayRead().then(() => { free = true; });
+    expect(free).toBe(true);
+    h.finish(4, report(4));
+    free = false;
+    const waiting = h.mayRead().then(() => { free = true; });
+    await new Promise((r) => setImmediate(r));
+    expect(free).toBe(false);
+    expect(handed).toEqual([]);
+    h.finish(0, report(0));
+    await waiting;
+    expect(free).toBe(true);
+    expect(handed).toEqual([0, 1, 2, 3, 4]);
+    // Without reports in order nothing is held back.
+    const plain = handover(10, {}, 0);
+    plain.finish(5, report(5));
+    await plain.mayRead();
   });
 
   it('hands reports over in the order of the notes, and reads no note while the output is full', async () => {

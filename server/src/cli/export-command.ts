@@ -50,22 +50,28 @@ export async function runExport(args: readonly string[], io: Io): Promise<number
   // export of a big folder is larger than one string can hold, and need not sit in memory.
   const output = new Output(io.stdout);
   let bundles = 0;
-  const write = (r: FileReport): void => {
+  /** Writes a note's piece; returns the note's problem (a FHIR bundle too big for one string is one). */
+  const write = (r: FileReport): string | null => {
     const payload = r.payload;
     if (opts.format === 'csv') {
       if (typeof payload === 'string') output.write(payload);
     } else if (opts.format === 'jsonl') {
       if (typeof payload === 'string' && payload.length > 0) output.write(payload.endsWith('\n') ? payload : `${payload}\n`);
     } else if (payload) {
-      output.write(`${bundles++ === 0 ? '' : ',\n'}${JSON.stringify(payload, null, 2)}`);
+      let bundle: string;
+      try {
+        bundle = JSON.stringify(payload, null, 2);
+      } catch (error) {
+        if (!(error instanceof RangeError)) throw error;
+        return 'its FHIR bundle is more JSON than one string can hold; export it with --format jsonl or csv';
+      }
+      output.write(`${bundles++ === 0 ? '' : ',\n'}${bundle}`);
     }
+    return r.problem;
   };
   output.write(opts.format === 'csv' ? csvHeader(exportColumns()) : opts.format === 'fhir' ? '[\n' : '');
   const reports = await gather(files, task, io, new NoteWorker(io.cwd, {}, exportRenderer), opts.progress && !io.stdout.isTTY, 'exporting', opts.jobs, {
-    inOrder: (r) => {
-      write(r);
-      return { path: r.path, problem: r.problem, findings: r.findings };
-    },
+    inOrder: (r) => ({ path: r.path, problem: write(r), findings: r.findings }),
     ready: () => output.ready(),
   });
   if (opts.format === 'fhir') output.write('\n]\n');

@@ -18,7 +18,7 @@ import { runExport, exportRenderer } from './export-command';
 import { runFmt } from './fmt-command';
 import { listInputs, readNote } from './inputs';
 import { gather, type BatchDone, type WorkDone, type WorkItem } from './pool';
-import { CheckJsonWriter, jsonFileEntry, writeCheckSarif, writeCheckText, type FileOutcome } from './render-check';
+import { CheckJsonWriter, jsonFileEntryOrProblem, writeCheckSarif, writeCheckText, type FileOutcome } from './render-check';
 import { renderShow } from './render-show';
 import { Output } from './output';
 import { NoteWorker, packReport, type FileReport, type Task } from './work';
@@ -91,7 +91,7 @@ async function check(args: readonly string[], io: Io): Promise<number> {
   const json = opts.format === 'json' ? new CheckJsonWriter(output) : null;
   if (json) for (const o of unread) json.file(o);
   const streaming = json ? {
-    inOrder: (r: FileReport): FileReport => { json.file(r); return { path: r.path, problem: r.problem, findings: r.findings }; },
+    inOrder: (r: FileReport): FileReport => ({ path: r.path, problem: json.file(r), findings: r.findings }),
     ready: () => output.ready(),
   } : undefined;
   const reports = await gather(files, { kind: 'check', timepoints: json !== null }, io, worker, opts.progress && !(json && io.stdout.isTTY), 'checking', opts.jobs, streaming);
@@ -135,7 +135,8 @@ function workerMain(): void {
   const written = (r: FileReport): FileReport => {
     if (r.timepoints === undefined) return r;
     const { timepoints: _written, ...rest } = r;
-    return { ...rest, entry: jsonFileEntry(r) };
+    const { entry, problem } = jsonFileEntryOrProblem(r);
+    return { ...rest, entry, problem };
   };
   parentPort?.on('message', (batch: WorkItem[]) => {
     const started = performance.now();

@@ -40,6 +40,13 @@ export function batchSize(notes: number, workers: number): number {
   return Math.max(1, Math.min(64, Math.floor(notes / (Math.max(1, workers) * 8))));
 }
 
+/**
+ * Notes done but held back behind an earlier one still being read, when reports go out in order:
+ * past this many, workers get no more notes until the output catches up (a slow note at the start
+ * must not leave the rest of a big export waiting in memory).
+ */
+const AHEAD = 256;
+
 /** Notes in the first batches, before a worker has said how long a note takes. */
 const FIRST_BATCH = 4;
 /** Work per batch aimed at, in milliseconds: long enough to hide a round trip, short enough that what a batch sends back (the JSON of a note's timepoints can be a megabyte) stays small. */
@@ -88,24 +95,51 @@ export function canUseWorkers(): boolean {
   return typeof __filename === 'string' && __filename.endsWith('.js');
 }
 
-export async function runAll(files: readonly string[], task: Task, local: NoteWorker, stdin: () => Buffer, options: PoolOptions): Promise<FileReport[]> {
-  const reports: FileReport[] = new Array<FileReport>(files.length);
-  const total = files.length;
+/**
+ * Where reports land: in the slot of their note, handed over in the order of the notes when
+ * `inOrder` is given. `mayRead` holds back the reading of more notes while the output is full, or
+ * while more than `ahead` notes are done but waiting behind an earlier one still being read.
+ */
+export function handover(total: number, options: Pick<PoolOptions, 'inOrder' | 'ready' | 'onDone'>, ahead = AHEAD): {
+  readonly reports: FileReport[];
+  finish(i: number, report: FileReport): void;
+  mayRead(): Promise<void>;
+} {
+  const reports: FileReport[] = new Array<FileReport>(total);
+  const ready = options.ready ?? (() => Promise.resolve());
   let done = 0;
   let passed = 0;
-  const finish = (i: number, report: FileReport) => {
-    reports[i] = report;
-    done++;
-    options.onDone?.(done, total);
-    const inOrder = options.inOrder;
-    if (!inOrder) return;
-    for (let next = reports[passed]; passed < total && next !== undefined; next = reports[passed]) reports[passed++] = inOrder(next);
+  /** Readers waiting for the notes handed over in order to catch up. */
+  let waiting: (() => void)[] = [];
+  return {
+    reports,
+    finish(i: number, report: FileReport): void {
+      reports[i] = report;
+      done++;
+      options.onDone?.(done, total);
+      const inOrder = options.inOrder;
+      if (!inOrder) return;
+      for (let next = reports[passed]; passed < total && next !== undefined; next = reports[passed]) reports[passed++] = inOrder(next);
+      if (waiting.length > 0 && done - passed <= ahead) {
+        const wake = waiting;
+        waiting = [];
+        for (const w of wake) w();
+      }
+    },
+    async mayRead(): Promise<void> {
+      while (options.inOrder && done - passed > ahead) await new Promise<void>((resolve) => waiting.push(resolve));
+      await ready();
+    },
   };
+}
+
+export async function runAll(files: readonly string[], task: Task, local: NoteWorker, stdin: () => Buffer, options: PoolOptions): Promise<FileReport[]> {
+  const { reports, finish, mayRead } = handover(files.length, options);
   const parallel = options.workers > 1 && canUseWorkers();
-  const ready = options.ready ?? (() => Promise.resolve());
+
   if (!parallel) {
     for (let i = 0; i < files.length; i++) {
-      await ready();
+      await mayRead();
       finish(i, local.run(files[i]!, task, stdin));
       if (i % 64 === 63) await new Promise((r) => setImmediate(r)); // let a progress bar draw
     }
@@ -143,7 +177,7 @@ export async function runAll(files: readonly string[], task: Task, local: NoteWo
       const count = answer.done.length;
       if (count > 0) perNote = Number.isNaN(perNote) ? answer.millis / count : (perNote + answer.millis / count) / 2;
       for (const d of answer.done) finish(d.i, unpackReport(d.report));
-      ready().then(feed, reject);
+      mayRead().then(feed, reject);
     });
     worker.on('error', reject);
     worker.on('online', () => {

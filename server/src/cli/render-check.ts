@@ -109,14 +109,17 @@ export class CheckJsonWriter {
     out.write('{\n  "pneumark": 1,\n  "files": [');
   }
 
-  file(o: FileOutcome): void {
+  /** Writes a note's entry; returns the note's problem (see `jsonFileEntryOrProblem`). */
+  file(o: FileOutcome): string | null {
     const c = countSeverities(o.findings);
     this.total.error += c.error;
     this.total.warning += c.warning;
     this.total.information += c.information;
     this.total.hint += c.hint;
-    if (o.problem) this.unreadable++;
-    this.out.write(`${this.files++ === 0 ? '' : ','}\n    ${o.entry ?? jsonFileEntry(o)}`);
+    const { entry, problem } = o.entry !== undefined ? { entry: o.entry, problem: o.problem } : jsonFileEntryOrProblem(o);
+    if (problem) this.unreadable++;
+    this.out.write(`${this.files++ === 0 ? '' : ','}\n    ${entry}`);
+    return problem;
   }
 
   /** Closes the list of files and writes the summary (no line break after the closing brace). */
@@ -139,6 +142,23 @@ export function jsonFileEntry(o: FileOutcome): string {
     ...(o.timepoints ? { timepoints: o.timepoints } : {}),
   };
   return nested(file, '    ');
+}
+
+/** Why a note's JSON entry leaves out its timepoints, when they make more JSON than one string can hold. */
+export const TOO_MUCH_JSON = 'its timepoints make more JSON than one string can hold; check it with --format text or sarif, or export it with --format jsonl or csv';
+
+/**
+ * The note's entry, or, when its timepoints make more JSON than one string can hold (hundreds of
+ * megabytes: a note of tens of thousands of timepoints), its entry without them and with a problem
+ * that says so, so the run goes on and ends with exit code 2.
+ */
+export function jsonFileEntryOrProblem(o: FileOutcome): { readonly entry: string; readonly problem: string | null } {
+  try {
+    return { entry: jsonFileEntry(o), problem: o.problem };
+  } catch (error) {
+    if (!(error instanceof RangeError)) throw error;
+    return { entry: jsonFileEntry({ path: o.path, findings: o.findings, problem: TOO_MUCH_JSON }), problem: TOO_MUCH_JSON };
+  }
 }
 
 /** A value as `JSON.stringify(…, null, 2)` writes it nested at `indent` (line breaks only come from the layout). */
