@@ -14,6 +14,7 @@ import { toSarifLog } from '../../server/src/core/export';
 import { PNEUMARK_VERSION } from '../../server/src/core/version';
 import { paint } from '../../server/src/cli/colour';
 import { NoteWorker } from '../../server/src/cli/work';
+import { bundleText } from '../../server/src/cli/export-command';
 import { EventEmitter } from 'node:events';
 import { run } from '../../server/src/cli/main';
 import { availableParallelism } from 'node:os';
@@ -140,6 +141,10 @@ describe('output written a note at a time', () => {
     // Any other failure is not mistaken for size.
     const broken = { toJSON() { throw new TypeError('broken'); } };
     expect(() => jsonFileEntryOrProblem({ path: 'b.pneu', findings: [], problem: null, timepoints: [broken] })).toThrow(TypeError);
+    // The same for a FHIR bundle.
+    expect(bundleText({ resourceType: 'Bundle', entry: [tooBig] })).toBeNull();
+    expect(bundleText({ resourceType: 'Bundle', entry: [] })).toBe(JSON.stringify({ resourceType: 'Bundle', entry: [] }, null, 2));
+    expect(() => bundleText({ entry: [broken] })).toThrow(TypeError);
   });
 
   it('waits for a full stream to drain before more is read', async () => {

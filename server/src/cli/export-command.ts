@@ -35,6 +35,19 @@ export const exportRenderer: ExportRenderer = (path: string, result: NoteResult,
   return toFhirBundle(path, result, { ...options, ...(task.anchor ? { anchor: task.anchor } : {}) });
 };
 
+/** Why a note's FHIR bundle is left out of the export. */
+export const TOO_BIG_BUNDLE = 'its FHIR bundle is more JSON than one string can hold; export it with --format jsonl or csv';
+
+/** A note's FHIR bundle as written in the array, or null when it is more JSON than one string can hold. */
+export function bundleText(payload: unknown): string | null {
+  try {
+    return JSON.stringify(payload, null, 2);
+  } catch (error) {
+    if (!(error instanceof RangeError)) throw error;
+    return null;
+  }
+}
+
 export async function runExport(args: readonly string[], io: Io): Promise<number> {
   const { positionals, values } = parse(args, {
     format: { type: 'string' }, redact: { type: 'boolean' }, 'shift-days': { type: 'string' }, anchor: { type: 'string' },
@@ -58,13 +71,8 @@ export async function runExport(args: readonly string[], io: Io): Promise<number
     } else if (opts.format === 'jsonl') {
       if (typeof payload === 'string' && payload.length > 0) output.write(payload.endsWith('\n') ? payload : `${payload}\n`);
     } else if (payload) {
-      let bundle: string;
-      try {
-        bundle = JSON.stringify(payload, null, 2);
-      } catch (error) {
-        if (!(error instanceof RangeError)) throw error;
-        return 'its FHIR bundle is more JSON than one string can hold; export it with --format jsonl or csv';
-      }
+      const bundle = bundleText(payload);
+      if (bundle === null) return TOO_BIG_BUNDLE;
       output.write(`${bundles++ === 0 ? '' : ',\n'}${bundle}`);
     }
     return r.problem;
