@@ -13,7 +13,7 @@ import { EXIT, HELP, jobsOption, parse, UsageError, validate, type Io } from './
 import { listInputs } from './inputs';
 import { Output } from './output';
 import { gather } from './pool';
-import { NoteWorker, type ExportRenderer, type FileReport } from './work';
+import { NoteWorker, written, type ExportRenderer, type FileReport } from './work';
 
 const exportOptions = z.object({
   format: z.enum(['csv', 'jsonl', 'fhir'], { message: 'choose csv, jsonl or fhir' }),
@@ -79,7 +79,7 @@ export async function runExport(args: readonly string[], io: Io): Promise<number
   };
   output.write(opts.format === 'csv' ? csvHeader(exportColumns()) : opts.format === 'fhir' ? '[\n' : '');
   const reports = await gather(files, task, io, new NoteWorker(io.cwd, {}, exportRenderer), opts.progress && !io.stdout.isTTY, 'exporting', opts.jobs, {
-    inOrder: (r) => ({ path: r.path, problem: write(r), findings: r.findings }),
+    inOrder: (r) => written(r, write(r)),
     ready: () => output.ready(),
   });
   if (opts.format === 'fhir') output.write('\n]\n');

@@ -21,7 +21,7 @@ import { gather, type BatchDone, type WorkDone, type WorkItem } from './pool';
 import { CheckJsonWriter, jsonFileEntryOrProblem, writeCheckSarif, writeCheckText, type FileOutcome } from './render-check';
 import { renderShow } from './render-show';
 import { Output } from './output';
-import { NoteWorker, packReport, type FileReport, type Task } from './work';
+import { NoteWorker, packReport, written, type FileReport, type Task } from './work';
 
 export async function run(argv: readonly string[], io: Io): Promise<number> {
   const [command, ...rest] = argv;
@@ -91,7 +91,7 @@ async function check(args: readonly string[], io: Io): Promise<number> {
   const json = opts.format === 'json' ? new CheckJsonWriter(output) : null;
   if (json) for (const o of unread) json.file(o);
   const streaming = json ? {
-    inOrder: (r: FileReport): FileReport => ({ path: r.path, problem: json.file(r), findings: r.findings }),
+    inOrder: (r: FileReport): FileReport => written(r, json.file(r)),
     ready: () => output.ready(),
   } : undefined;
   const reports = await gather(files, { kind: 'check', timepoints: json !== null }, io, worker, opts.progress && !(json && io.stdout.isTTY), 'checking', opts.jobs, streaming);
@@ -99,12 +99,13 @@ async function check(args: readonly string[], io: Io): Promise<number> {
   const p: Paint = paint(colourWanted(io.stdout, io.env));
   if (json) {
     json.end();
-    io.stdout.write('\n');
+    output.write('\n');
   } else if (opts.format === 'sarif') {
     await writeCheckSarif(outcomes, opts.quiet, output);
     output.write('\n');
+  } else {
+    await writeCheckText(outcomes, p, opts.quiet, output);
   }
-  else await writeCheckText(outcomes, p, opts.quiet, output);
   for (const o of outcomes) if (o.problem) io.stderr.write(`pneumark: ${o.path}: ${o.problem}\n`);
   if (outcomes.some((o) => o.problem)) return EXIT.usage;
   if (outcomes.some((o) => o.findings.some((f) => f.severity === 'error'))) return EXIT.findings;
@@ -132,9 +133,9 @@ function workerMain(): void {
   const data = workerData as { cwd: string; overrides: object; task: Task };
   const worker = new NoteWorker(data.cwd, data.overrides, exportRenderer);
   // JSON output: the worker writes out each note's entry (see jsonFileEntry).
-  const written = (r: FileReport): FileReport => {
+  const withEntry = (r: FileReport): FileReport => {
     if (r.timepoints === undefined) return r;
-    const { timepoints: _written, ...rest } = r;
+    const { timepoints: _inEntry, ...rest } = r;
     const { entry, problem } = jsonFileEntryOrProblem(r);
     return { ...rest, entry, problem };
   };
@@ -142,7 +143,7 @@ function workerMain(): void {
     const started = performance.now();
     const done: WorkDone[] = batch.map((m) => {
       try {
-        return { i: m.i, report: packReport(written(worker.run(m.f, data.task, () => Buffer.alloc(0)))) };
+        return { i: m.i, report: packReport(withEntry(worker.run(m.f, data.task, () => Buffer.alloc(0)))) };
       } catch (error) {
         return { i: m.i, report: packReport({ path: m.f, problem: `could not be analysed (${error instanceof Error ? error.message : String(error)})`, findings: [] }) };
       }

@@ -31,36 +31,53 @@ export interface Sink {
 /** Pieces of output gathered up to this many characters before they are written. */
 const PIECE = 1 << 20;
 
+/** Output gathered into pieces of about a megabyte, each written to the sink once full. */
+class Pieces {
+  private piece = '';
+
+  constructor(private readonly out: Sink) {}
+
+  /** Adds text; when that fills the piece, writes it and returns a wait for the sink to take more. */
+  add(text: string): Promise<void> | null {
+    this.piece += text;
+    if (this.piece.length < PIECE) return null;
+    this.out.write(this.piece);
+    this.piece = '';
+    return this.out.ready();
+  }
+
+  /** Writes what is left, with `text` after it. */
+  end(text: string): void {
+    this.out.write(this.piece + text);
+    this.piece = '';
+  }
+}
+
 /**
  * Text output: a line per finding (`--quiet`: errors only) and a line of totals, written in pieces
  * of about a megabyte.
  */
 export async function writeCheckText(outcomes: readonly FileOutcome[], p: Paint, quiet: boolean, out: Sink): Promise<void> {
   const total: SeverityCounts = { error: 0, warning: 0, information: 0, hint: 0 };
-  let piece = '';
+  const pieces = new Pieces(out);
   for (const o of outcomes) {
+    let lines = '';
     if (o.problem) {
-      piece += `${o.path}: ${p.red('cannot check')}: ${o.problem}\n`;
-      continue;
+      lines = `${o.path}: ${p.red('cannot check')}: ${o.problem}\n`;
+    } else {
+      countSeverities(o.findings, total);
+      for (const f of o.findings) {
+        if (quiet && f.severity !== 'error') continue;
+        const sev = f.severity === 'error' ? p.red('error') : f.severity === 'warning' ? p.yellow('warning') : p.blue(f.severity === 'information' ? 'info' : 'hint');
+        lines += `${o.path}:${f.range.start.line + 1}:${f.range.start.character + 1}  ${sev}  ${p.dim(`${f.code} ${aliasOf.get(f.code) ?? ''}`)}  ${f.message}\n`;
+      }
     }
-    const c = countSeverities(o.findings);
-    total.error += c.error;
-    total.warning += c.warning;
-    total.information += c.information;
-    total.hint += c.hint;
-    for (const f of o.findings) {
-      if (quiet && f.severity !== 'error') continue;
-      const sev = f.severity === 'error' ? p.red('error') : f.severity === 'warning' ? p.yellow('warning') : p.blue(f.severity === 'information' ? 'info' : 'hint');
-      piece += `${o.path}:${f.range.start.line + 1}:${f.range.start.character + 1}  ${sev}  ${p.dim(`${f.code} ${aliasOf.get(f.code) ?? ''}`)}  ${f.message}\n`;
-    }
-    if (piece.length < PIECE) continue;
-    out.write(piece);
-    piece = '';
-    await out.ready();
+    const full = pieces.add(lines);
+    if (full) await full;
   }
   const checked = outcomes.filter((o) => !o.problem).length;
   const unreadable = outcomes.length - checked;
-  out.write(`${piece}${checked} note${checked === 1 ? '' : 's'} checked${unreadable ? `, ${unreadable} could not be read` : ''}: ${total.error} error${total.error === 1 ? '' : 's'}, ${total.warning} warning${total.warning === 1 ? '' : 's'}, ${total.information} info.\n`);
+  pieces.end(`${checked} note${checked === 1 ? '' : 's'} checked${unreadable ? `, ${unreadable} could not be read` : ''}: ${total.error} error${total.error === 1 ? '' : 's'}, ${total.warning} warning${total.warning === 1 ? '' : 's'}, ${total.information} info.\n`);
 }
 
 export interface JsonFinding {
@@ -111,11 +128,7 @@ export class CheckJsonWriter {
 
   /** Writes a note's entry; returns the note's problem (see `jsonFileEntryOrProblem`). */
   file(o: FileOutcome): string | null {
-    const c = countSeverities(o.findings);
-    this.total.error += c.error;
-    this.total.warning += c.warning;
-    this.total.information += c.information;
-    this.total.hint += c.hint;
+    countSeverities(o.findings, this.total);
     const { entry, problem } = o.entry !== undefined ? { entry: o.entry, problem: o.problem } : jsonFileEntryOrProblem(o);
     if (problem) this.unreadable++;
     this.out.write(`${this.files++ === 0 ? '' : ','}\n    ${entry}`);
@@ -186,16 +199,14 @@ export async function writeCheckSarif(outcomes: readonly FileOutcome[], quiet: b
   // `results` is the last member of the only run: its empty list is the last one in the text.
   const empty = '"results": []';
   const at = whole.lastIndexOf(empty);
-  let piece = `${whole.slice(0, at)}"results": [`;
+  const pieces = new Pieces(out);
+  await pieces.add(`${whole.slice(0, at)}"results": [`);
   let count = 0;
   for (const file of files) {
     for (const result of resultsOf(file)) {
-      piece += `${count++ === 0 ? '' : ','}\n        ${nested(result, '        ')}`;
-      if (piece.length < PIECE) continue;
-      out.write(piece);
-      piece = '';
-      await out.ready();
+      const full = pieces.add(`${count++ === 0 ? '' : ','}\n        ${nested(result, '        ')}`);
+      if (full) await full;
     }
   }
-  out.write(`${piece}${count === 0 ? '' : '\n      '}]${whole.slice(at + empty.length)}`);
+  pieces.end(`${count === 0 ? '' : '\n      '}]${whole.slice(at + empty.length)}`);
 }

@@ -101,10 +101,10 @@ export interface SeverityCounts {
   hint: number;
 }
 
-export function countSeverities(findings: readonly Finding[]): SeverityCounts {
-  const c: SeverityCounts = { error: 0, warning: 0, information: 0, hint: 0 };
-  for (const f of findings) c[f.severity]++;
-  return c;
+/** The findings by severity, added to `into` when given (totals over several notes). */
+export function countSeverities(findings: readonly Finding[], into: SeverityCounts = { error: 0, warning: 0, information: 0, hint: 0 }): SeverityCounts {
+  for (const f of findings) into[f.severity]++;
+  return into;
 }
 
 function summary(c: SeverityCounts, p: Paint): string {

@@ -56,6 +56,14 @@ export class NoteWorker {
 }
 
 /**
+ * What a command keeps of a report once the note's output is written (see `inOrder` in the pool):
+ * its path, its problem (the writing may have found one) and its findings, for the exit code.
+ */
+export function written(report: FileReport, problem: string | null): FileReport {
+  return { path: report.path, problem, findings: report.findings };
+}
+
+/**
  * A note's findings as they cross from a worker to the main thread: the four numbers of each range
  * in one typed array and the four strings of each finding in one list, plus the rare fixes and
  * related places by index. A structured clone copies a typed array in one piece but a finding's
