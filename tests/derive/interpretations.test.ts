@@ -75,6 +75,11 @@ describe('oxygenation, ventilation and respiratory failure', () => {
     expect(readings('@ 08:00\noxygen cpap 8, fio2 0.5\nabg 7.38/42/90/24')['oxygenation-band']).toMatch(/with CPAP 8 cmH2O: consistent with the 100–200/);
   });
 
+  it('puts a P/F of exactly 200 in the 100–200 band although 114 / 0.57 is 200.00000000000003 in floating point (Berlin: 100 < P/F ≤ 200; JAMA 2012, from memory)', () => {
+    const r = readings('@ 08:00\nvent peep 8, fio2 0.57\nabg 7.38/42/114/24');
+    expect(r['oxygenation-band']).toMatch(/^P\/F 200 with PEEP 8 cmH2O: consistent with the 100–200 oxygenation band/);
+  });
+
   it('uses the altitude-adjusted P/F for the band below sea-level pressure (× PB/760)', () => {
     const r = readings('place barometric 600\n@ 08:00\nvent peep 8, fio2 0.4\nabg 7.40/40/100/24.4');
     // P/F 250 × 600/760 = 197 → the 100–200 band.

@@ -95,6 +95,14 @@ describe('anion gap', () => {
   it.each(bands)('delta ratio %f reads as %s (Rastegar 2007; from memory)', (ratio, band) => {
     expect(deltaRatioBand(ratio)).toBe(band);
   });
+  it('a ratio on a band boundary on paper is on it here, whatever floating point makes of the quotient (Rastegar 2007 bands; from memory)', () => {
+    // (39.2 − 12) / (24 − 10.4) is 2 on paper and 2.0000000000000004 in floating point.
+    expect(deltaRatio(39.2, 10.4)).not.toBe(2);
+    expect(deltaRatioBand(deltaRatio(39.2, 10.4)!)).toBe('high-gap-acidosis');
+    // (17.2 − 12) / (24 − 11) is 0.4 on paper and 0.39999999999999997 in floating point.
+    expect(deltaRatioBand(deltaRatio(17.2, 11)!)).toBe('mixed-high-and-normal-gap-acidosis');
+    expect(deltaRatioBand(2.001)).toBe('high-gap-acidosis-with-alkalosis');
+  });
 });
 
 describe('expected compensation', () => {

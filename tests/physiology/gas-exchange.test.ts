@@ -105,6 +105,15 @@ describe('P/F ratio and the Berlin bands (ARDS Definition Task Force, JAMA 2012)
   it.each(bands)('P/F %f → %s (Berlin: 200 < P/F ≤ 300, 100 < P/F ≤ 200, P/F ≤ 100)', (pf, band) => {
     expect(berlinOxygenationBand(pf)).toBe(band);
   });
+  it('a P/F on a band boundary on paper is on it here, whatever floating point makes of the quotient (ARDS Definition Task Force, JAMA 2012)', () => {
+    // 114 / 0.57 is 200 on paper and 200.00000000000003 in floating point.
+    expect(pfRatio(114, 0.57)).not.toBe(200);
+    expect(berlinOxygenationBand(pfRatio(114, 0.57)!)).toBe('pf-100-to-200');
+    expect(berlinOxygenationBand(pfRatio(57, 0.57)!)).toBe('pf-100-or-below');
+    expect(berlinOxygenationBand(pfRatio(69, 0.69)!)).toBe('pf-100-or-below');
+    expect(berlinOxygenationBand(pfRatio(138, 0.69)!)).toBe('pf-100-to-200');
+    expect(berlinOxygenationBand(200.001)).toBe('pf-200-to-300');
+  });
   it('names the Berlin severities mild / moderate / severe', () => {
     expect(BERLIN_BAND_SEVERITY['pf-200-to-300']).toBe('mild');
     expect(BERLIN_BAND_SEVERITY['pf-100-or-below']).toBe('severe');

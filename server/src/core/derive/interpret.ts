@@ -5,6 +5,7 @@
  * practice). Grades and cut-offs not taken from settings are named below with their source.
  */
 import { BERLIN_BAND_SEVERITY, berlinOxygenationBand, type AcidBaseClassification, type AcidBaseDisorder } from '../physiology';
+import { forBand } from '../physiology/numeric';
 import type { Settings } from '../settings';
 import { formatNumber } from '../util/format';
 import { classification } from './acid-base';
@@ -53,7 +54,7 @@ export function interpret(c: DeriveContext, settings: Settings): Interpretation[
     if (hypoxaemic) {
       const grade = pao2.value < SEVERE_HYPOXAEMIA_MMHG ? 'severe' : 'moderate';
       push('oxygenation', `PaO2 ${n0(pao2.value)} mmHg: consistent with ${grade} hypoxaemia (below ${n0(settings.hypoxaemiaBelowMmhg)} mmHg${grade === 'severe' ? `, and below ${SEVERE_HYPOXAEMIA_MMHG}` : ''})${onOxygen ? ` despite FiO2 ${formatNumber(fio2.value, 2)}` : ''}.`, ['pao2']);
-    } else if (onOxygen && pf && pf.value <= 300) {
+    } else if (onOxygen && pf && forBand(pf.value) <= 300) {
       push('oxygenation', `PaO2 ${n0(pao2.value)} mmHg on FiO2 ${formatNumber(fio2.value, 2)} (P/F ${n0(pf.value)}): consistent with impaired oxygenation supported by oxygen.`, ['pao2', 'pf_ratio']);
     } else if (pao2.value < LOW_NORMAL_PAO2_MMHG) {
       push('oxygenation', `PaO2 ${n0(pao2.value)} mmHg: consistent with mildly reduced oxygenation, above the hypoxaemia threshold of ${n0(settings.hypoxaemiaBelowMmhg)} mmHg.`, ['pao2'], false);

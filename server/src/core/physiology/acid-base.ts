@@ -7,7 +7,7 @@
  * or outside the stated domain. pH must lie on the aqueous scale 0–14 to be accepted here;
  * whether it is plausible for blood is the check layer's business.
  */
-import { allFinite, finiteOrNull, inClosedRange } from './numeric';
+import { allFinite, finiteOrNull, forBand, inClosedRange } from './numeric';
 
 /** Citations for the formulas in this module (key → citation). */
 export const SOURCES = Object.freeze({
@@ -300,9 +300,10 @@ export function deltaRatio(
  */
 export function deltaRatioBand(ratio: number): DeltaRatioBand | null {
   if (!allFinite(ratio)) return null;
-  if (ratio < 0.4) return 'normal-gap-acidosis';
-  if (ratio < 0.8) return 'mixed-high-and-normal-gap-acidosis';
-  if (ratio <= 2) return 'high-gap-acidosis';
+  const r = forBand(ratio);
+  if (r < 0.4) return 'normal-gap-acidosis';
+  if (r < 0.8) return 'mixed-high-and-normal-gap-acidosis';
+  if (r <= 2) return 'high-gap-acidosis';
   return 'high-gap-acidosis-with-alkalosis';
 }
 

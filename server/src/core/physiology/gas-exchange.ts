@@ -6,7 +6,7 @@
  * respiratory rate per minute, age in years. Every function returns `null` (never NaN or
  * ±Infinity, never throws) when an input is non-finite or outside the stated domain.
  */
-import { allFinite, finiteOrNull, inClosedRange, isFio2Fraction, isPercent } from './numeric';
+import { allFinite, finiteOrNull, forBand, inClosedRange, isFio2Fraction, isPercent } from './numeric';
 
 /** Citations for the formulas in this module (key → citation). */
 export const SOURCES = Object.freeze({
@@ -159,9 +159,11 @@ export function pfRatioAltitudeAdjusted(pfRatioMmhg: number, pbMmhg: number): nu
  * negative or non-finite value. The band alone is not a diagnosis of ARDS. Source: `berlin-2012`.
  */
 export function berlinOxygenationBand(pfRatioMmhg: number): BerlinOxygenationBand | null {
-  if (!allFinite(pfRatioMmhg) || pfRatioMmhg < 0 || pfRatioMmhg > 300) return null;
-  if (pfRatioMmhg > 200) return 'pf-200-to-300';
-  if (pfRatioMmhg > 100) return 'pf-100-to-200';
+  if (!allFinite(pfRatioMmhg)) return null;
+  const pf = forBand(pfRatioMmhg);
+  if (pf < 0 || pf > 300) return null;
+  if (pf > 200) return 'pf-200-to-300';
+  if (pf > 100) return 'pf-100-to-200';
   return 'pf-100-or-below';
 }
 

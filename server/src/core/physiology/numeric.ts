@@ -33,3 +33,12 @@ export function isFio2Fraction(value: number): boolean {
 export function isPercent(value: number): boolean {
   return inClosedRange(value, 0, 100);
 }
+
+/**
+ * A computed value as compared with a band's boundary: rounded to 9 decimal places, so that a
+ * quotient which is exactly on a boundary on paper (114 / 0.57 = 200) is on it here too, where
+ * floating point gives 200.00000000000003. Inputs carry far fewer decimals than that.
+ */
+export function forBand(value: number): number {
+  return Math.round(value * 1e9) / 1e9;
+}
