@@ -24,6 +24,7 @@ const rows: { name: string; gas: string; reading: RegExp; source: string }[] = [
   { name: 'mixed metabolic and respiratory acidosis', gas: 'abg 7.13/55/70/18', reading: /^Consistent with a mixed metabolic and respiratory acidosis\.$/, source: 'both components beyond their reference intervals (common practice, no source)' },
   { name: 'normal gas', gas: 'abg 7.40/40/95/24.4', reading: /^Consistent with normal acid–base balance\.$/, source: 'reference intervals pH 7.35–7.45, PaCO2 35–45, HCO3 22–26 (common practice, no source)' },
   { name: 'high-gap acidosis with a hidden metabolic alkalosis (delta ratio 3.3)', gas: 'abg 7.33/38/95/20\nlabs na 140, cl 95, hco3 20', reading: /metabolic acidosis with a high anion gap, with the expected respiratory response \(PaCO2 36–40 mmHg\); suspected additional metabolic alkalosis\.$/, source: DELTA },
+  { name: 'the delta ratio of the reading takes the serum HCO3 the gap was computed with (AG 22.5, Δ (22.5 − 12) ÷ (24 − 17.5) = 1.6, not the gas HCO3 19.5, which gives 2.3)', gas: 'abg 7.33/38/90/19.5\nlabs na 140, cl 100, hco3 17.5', reading: /^Consistent with metabolic acidosis with a high anion gap, with the expected respiratory response \(PaCO2 35–39 mmHg\)\.$/, source: DELTA },
   { name: 'normal-gap acidosis (anion gap 10)', gas: 'abg 7.28/26/95/12\nlabs na 140, cl 118, hco3 12', reading: /^Consistent with metabolic acidosis with a normal anion gap, with the expected respiratory response/, source: 'anion gap = Na − (Cl + HCO3), normal about 12 (common practice, no source)' },
 ];
 

@@ -32,7 +32,8 @@ const CLASSIFICATION: Kept<AcidBaseClassification | null, DeriveContext> = {
     const hco3 = c.field('hco3');
     if (!ph || !paco2 || !hco3) return null;
     const gap = c.derived('anion_gap_albumin_corrected') ?? c.derived('anion_gap');
-    return classifyAcidBase({ ph: ph.value, paco2Mmhg: paco2.value, hco3MmolL: hco3.value, anionGapMmolL: gap?.value });
+    // The delta ratio takes the bicarbonate the gap was computed with (serum when the laboratory gave it).
+    return classifyAcidBase({ ph: ph.value, paco2Mmhg: paco2.value, hco3MmolL: hco3.value, anionGapMmolL: gap?.value, gapHco3MmolL: gap ? bicarbonate(c)?.value : undefined });
   },
 };
 
@@ -114,7 +115,8 @@ export const deltaRatioDef = defineDerived({
   label: 'Delta ratio',
   short: 'Δ ratio',
   unit: '',
-  decimals: 1,
+  // Two decimals: its bands end at 0.4, 0.8 and 2, and 2.03 shown as 2.0 would read as the wrong band.
+  decimals: 2,
   category: 'acid-base',
   formula: '({AG} − 12) ÷ (24 − {HCO3})',
   source: SOURCES['rastegar-2007'],

@@ -188,6 +188,11 @@ export interface AcidBaseInput {
   readonly hco3MmolL: number;
   /** Anion gap (mmol/L, without K; albumin-corrected if the caller wishes). Optional. */
   readonly anionGapMmolL?: number | undefined;
+  /**
+   * The HCO3 (mmol/L) the anion gap was computed with, for the delta ratio: a laboratory's serum
+   * bicarbonate where the gap used it. Defaults to `hco3MmolL`.
+   */
+  readonly gapHco3MmolL?: number | undefined;
 }
 
 export interface AcidBaseClassification {
@@ -549,8 +554,10 @@ function primaryDisorders(primary: PrimaryAcidBaseFinding): AcidBaseDisorder[] {
  */
 export function classifyAcidBase(input: AcidBaseInput): AcidBaseClassification | null {
   const { ph, paco2Mmhg: paco2, hco3MmolL: hco3, anionGapMmolL: gap } = input;
+  const gapHco3 = input.gapHco3MmolL ?? hco3;
   if (!validPh(ph) || !allFinite(paco2, hco3) || paco2 <= 0 || hco3 <= 0) return null;
   if (gap !== undefined && !allFinite(gap)) return null;
+  if (!allFinite(gapHco3) || gapHco3 <= 0) return null;
   const consistency = acidBaseConsistency(ph, paco2, hco3);
   if (consistency === null) return null;
 
@@ -565,7 +572,7 @@ export function classifyAcidBase(input: AcidBaseInput): AcidBaseClassification |
   let anionGapFinding: AnionGapFinding | null = null;
   if (gap !== undefined) {
     const high = gap > ANION_GAP_UPPER_NORMAL_MMOL_L;
-    const ratio = deltaRatio(gap, hco3);
+    const ratio = deltaRatio(gap, gapHco3);
     const band = ratio === null ? null : deltaRatioBand(ratio);
     const acidosisBefore = identified('metabolic-acidosis');
     let kind: MetabolicAcidosisKind | null = null;
