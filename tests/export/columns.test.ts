@@ -135,9 +135,9 @@ describe('cells', () => {
     expect(rows[0]?.carried_fields).toBe('');
   });
 
-  it('give time since day 1 00:00 and since the first known time', () => {
-    // `@ day 3` without a clock is 00:00 of day 3 (the timeline's rule).
-    expect(rows.map((r) => [r.day, r.minutes, r.offset_minutes])).toEqual([[1, 480, 0], [1, 570, 90], [3, 2880, 2400]]);
+  it('give time since day 1 00:00 and since the first known time; a day without a time of day leaves both empty', () => {
+    // `@ day 3` without a clock: the day is known, the time of day is not (no invented midnight).
+    expect(rows.map((r) => [r.day, r.minutes, r.offset_minutes])).toEqual([[1, 480, 0], [1, 570, 90], [3, null, null]]);
   });
 
   it('hold derived values at full precision, ranges as two ends, never NaN', () => {

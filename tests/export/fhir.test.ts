@@ -145,14 +145,14 @@ describe('time', () => {
   const note = '@ day 1 22:15  Mrs Example\nvitals hr 100\n@ 01:30\nvitals hr 90\n@ day 3\nvitals hr 80';
   const result = checked(note);
 
-  it('with an anchor: anchor + minutes, in the anchor offset', () => {
+  it('with an anchor: anchor + minutes, in the anchor offset; a day without a time of day gives the date alone (FHIR R4 dateTime allows day precision)', () => {
     const b = toFhirBundle('a.pneu', result, withAnchor);
-    expect(observations(b).map((o) => o.effectiveDateTime)).toEqual(['2000-01-01T22:15:00+01:00', '2000-01-02T01:30:00+01:00', '2000-01-03T00:00:00+01:00']);
+    expect(observations(b).map((o) => o.effectiveDateTime)).toEqual(['2000-01-01T22:15:00+01:00', '2000-01-02T01:30:00+01:00', '2000-01-03']);
   });
 
   it('shiftDays moves the effective time by whole days (across month ends)', () => {
     const b = toFhirBundle('a.pneu', result, { anchor: '2024-02-28T00:00Z', redactProse: false, shiftDays: 1 });
-    expect(observations(b).map((o) => o.effectiveDateTime)).toEqual(['2024-02-29T22:15:00Z', '2024-03-01T01:30:00Z', '2024-03-02T00:00:00Z']);
+    expect(observations(b).map((o) => o.effectiveDateTime)).toEqual(['2024-02-29T22:15:00Z', '2024-03-01T01:30:00Z', '2024-03-02']);
   });
 
   it('without an anchor: no effective time; the note names the timepoint and its relative time', () => {
@@ -161,7 +161,7 @@ describe('time', () => {
     expect(observations(b).map((o) => o.note?.[0]?.text)).toEqual([
       'Pneumark timepoint 0 (day 1 22:15): Mrs Example',
       'Pneumark timepoint 1 (day 2 01:30)',
-      'Pneumark timepoint 2 (day 3 00:00)',
+      'Pneumark timepoint 2 (day 3)',
     ]);
   });
 

@@ -227,7 +227,8 @@ function timeOf(node: TimepointLine, last: TimepointTime, isFirst: boolean): Tim
     const minutes = base + t.minutes;
     return { day: compact(Math.floor(minutes / 1440) + 1), minutes: compact(minutes) };
   }
-  if (t.kind === 'day') return { day: t.day, minutes: t.day === null ? null : compact((t.day - 1) * 1440) };
+  // A day without a time of day: the day is known, the minutes are not (never an invented midnight).
+  if (t.kind === 'day') return { day: t.day, minutes: null };
   // clock
   if (t.minutes === null) return { day: null, minutes: null };
   let day = t.day ?? last.day ?? 1;

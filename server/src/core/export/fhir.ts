@@ -24,7 +24,9 @@
  *
  * Time: notes hold relative days only. With `anchor` (an ISO 8601 date-time with seconds optional
  * and a zone, `Z` or `±hh:mm`, meaning 00:00 of day 1), `effectiveDateTime` is the anchor plus
- * the timepoint's minutes plus shiftDays × 1440 minutes, written with the anchor's own offset.
+ * the timepoint's minutes plus shiftDays × 1440 minutes, written with the anchor's own offset; a
+ * timepoint whose day is known but not its time of day (`@ day 3`) gets the date alone
+ * (`2024-03-03`, a dateTime to the day, as FHIR allows).
  * Without an anchor no effective time is written, since a relative time is not a FHIR dateTime;
  * each Observation then says in `note` which timepoint (and relative day and clock time) it
  * belongs to. With redactProse that note leaves out the timepoint's label.
@@ -281,7 +283,12 @@ export function toFhirBundle(path: string, result: NoteResult, options: FhirOpti
 
   for (const tp of timepoints) {
     const minutes = tp.time.minutes;
-    const effective = anchor && finite(minutes) ? shiftedDateTime(anchor, minutes + options.shiftDays * MINUTES_PER_DAY) : null;
+    const day = tp.time.day;
+    const effective = !anchor ? null
+      : finite(minutes) ? shiftedDateTime(anchor, minutes + options.shiftDays * MINUTES_PER_DAY)
+        // A day without a time of day: a FHIR dateTime to the day (`2024-03-02`), never an invented midnight.
+        : finite(day) ? shiftedDateTime(anchor, (day - 1 + options.shiftDays) * MINUTES_PER_DAY)?.slice(0, 10) ?? null
+          : null;
     const place: Place = { key: String(tp.index), effective, note: timepointNote(tp, writtenLabel(result, tp), options) };
     for (const field of FIELDS) {
       const input = tp.values.get(field.id);
