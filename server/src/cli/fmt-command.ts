@@ -1,14 +1,15 @@
 /**
  * `pneumark fmt`: the editor's formatter over files. `--check` lists notes whose layout would
- * change; `--write` rewrites them atomically and never over a note that has syntax errors (unless
- * --force) or that changed on disk while being formatted.
+ * change; `--write` rewrites them atomically (a note reached through a symbolic link where the link
+ * leads) and never over a note that has syntax errors (unless --force), that is not UTF-8 text, or
+ * that changed on disk while being formatted. A byte-order mark is kept, when printing too.
  */
 import { isAbsolute, join } from 'node:path';
 import { z } from 'zod';
 import { checkNote } from '../core/check-note';
 import { formatNote } from '../core/service/format';
 import { readSnapshot, writeIfUnchanged, type BeforeRename } from '../node/atomic-write';
-import { listInputs, looksBinary, MAX_NOTE_BYTES, readNote } from './inputs';
+import { listInputs, looksBinary, MAX_NOTE_BYTES, readNote, utf8Problem } from './inputs';
 import { EXIT, HELP, parse, UsageError, validate, type Io } from './args';
 
 const fmtOptions = z.object({
@@ -30,13 +31,18 @@ export function runFmt(args: readonly string[], io: Io): number {
   for (const p of problems) io.stderr.write(`pneumark: ${p.path}: ${p.problem}\n`);
 
   if (!opts.check && !opts.write) {
-    if (files.length !== 1 || problems.length > 0) throw new UsageError('without --check or --write, fmt prints one note: give exactly one file or -');
-    const note = readNote(files[0]!, io.cwd, io.stdin);
+    if (files.length > 1) {
+      throw new UsageError(`without --check or --write, fmt prints one note, and ${positionals.length === 1 ? `${positionals[0]} holds` : 'these inputs hold'} ${files.length}; add --check or --write to work on several`);
+    }
+    // A missing, unreadable or empty input has had its line above; there is nothing to print.
+    if (problems.length > 0 || files.length === 0) return EXIT.usage;
+    const note = readNote(files[0]!, io.cwd, io.stdin, { keepBom: true });
     if (note.text === null) {
       io.stderr.write(`pneumark: ${note.path}: ${note.problem}\n`);
       return EXIT.usage;
     }
-    io.stdout.write(formatNote(note.text));
+    const bom = note.text.charCodeAt(0) === 0xfeff ? '\uFEFF' : '';
+    io.stdout.write(bom + formatNote(bom ? note.text.slice(1) : note.text));
     return EXIT.ok;
   }
 
@@ -59,6 +65,13 @@ export function runFmt(args: readonly string[], io: Io): number {
     }
     if (snapshot.size > MAX_NOTE_BYTES || looksBinary(snapshot.bytes)) {
       io.stderr.write(`pneumark: ${file}: ${snapshot.size > MAX_NOTE_BYTES ? 'too large to format' : 'looks like a binary file, not a note'}\n`);
+      failed = true;
+      continue;
+    }
+    // Decoding other bytes would turn each into U+FFFD, and writing that back would damage the note.
+    const notUtf8 = utf8Problem(snapshot.bytes);
+    if (notUtf8 !== null) {
+      io.stderr.write(`pneumark: ${file}: ${notUtf8}; not ${opts.write ? 'rewritten' : 'checked'} (convert it to UTF-8 first)\n`);
       failed = true;
       continue;
     }

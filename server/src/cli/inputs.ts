@@ -1,13 +1,18 @@
 /**
- * Finding and reading the notes a command was given: files, folders (every `.pneu` below them),
- * glob patterns, and `-` for standard input; minus what `--exclude` patterns and a `.pneuignore`
- * file in the working folder exclude (gitignore syntax). The list is sorted, so output order never
- * depends on the file system or on parallelism. Unreadable, binary or huge files give a one-line
- * problem and the run goes on.
+ * Finding and reading the notes a command was given: files and folders (every note below them
+ * whose name ends in `.pneu`, in any case, skipping hidden folders and files and `node_modules`),
+ * glob patterns, and `-` for standard input; minus what `--exclude` patterns and a `.pneuignore` file
+ * in the working folder exclude (gitignore syntax, matched relative to the working folder, or for a
+ * note outside it relative to the folder named on the command line). A path that exists is always
+ * taken as a path, even when it looks like a pattern (`a[1].pneu`, `notes (copy)`). The list is
+ * sorted, so output order never depends on the file system or on parallelism. Unreadable, binary,
+ * non-UTF-8 or huge files give a one-line problem and the run goes on; inputs that hold no note at
+ * all give a one-line problem too, so a run pointed at the wrong folder does not pass.
  */
-import { closeSync, existsSync, fstatSync, openSync, readFileSync, readSync, realpathSync, statSync } from 'node:fs';
-import { isAbsolute, join, normalize, relative, sep } from 'node:path';
-import ignore from 'ignore';
+import { closeSync, existsSync, fstatSync, openSync, readFileSync, readSync, realpathSync, statSync, type Stats } from 'node:fs';
+import { isUtf8 } from 'node:buffer';
+import { dirname, isAbsolute, join, normalize, relative, resolve, sep } from 'node:path';
+import ignore, { type Ignore } from 'ignore';
 import { globSync, isDynamicPattern } from 'tinyglobby';
 
 export const MAX_NOTE_BYTES = 20 * 1024 * 1024;
@@ -30,41 +35,108 @@ export interface InputList {
 
 const toPosix = (p: string) => p.split(sep).join('/');
 
+/** What one command-line argument brought in, for saying why nothing was found. */
+interface ArgumentYield {
+  readonly arg: string;
+  readonly kind: 'folder' | 'file' | 'pattern';
+  /** The folder its exclusion patterns are matched from when a note is outside the working folder. */
+  readonly root: string;
+  found: number;
+  readonly excludedBy: Set<ExclusionSource>;
+}
+
+type ExclusionSource = '--exclude' | typeof IGNORE_FILE;
+
 export function listInputs(args: readonly string[], cwd: string, exclude: readonly string[] = []): InputList {
   const problems: NoteInput[] = [];
-  const found = new Set<string>();
+  /** Each path found, with the arguments that brought it in (the first decides its root). */
+  const found = new Map<string, ArgumentYield[]>();
+  const yields: ArgumentYield[] = [];
   let stdin = false;
+  const add = (path: string, from: ArgumentYield) => {
+    from.found++;
+    const by = found.get(path);
+    if (by === undefined) found.set(path, [from]);
+    else by.push(from);
+  };
   for (const arg of args) {
     if (arg === '-') { stdin = true; continue; }
-    if (isDynamicPattern(arg)) {
-      const matches = globSync(arg, { cwd, onlyFiles: true, dot: false, ignore: ['**/node_modules/**'], expandDirectories: false });
-      if (matches.length === 0) problems.push({ path: arg, text: null, problem: 'no file matches this pattern' });
-      for (const m of matches) found.add(toPosix(m));
-      continue;
-    }
-    const abs = isAbsolute(arg) ? arg : join(cwd, arg);
-    let stat;
+    const abs = resolve(cwd, arg);
+    // A path that exists is a path, whatever characters it has: `a[1].pneu` or `notes (copy)` must
+    // not be read as patterns (and match other files, or nothing).
+    let stat: Stats | null = null;
     try {
       stat = statSync(abs);
     } catch {
+      stat = null;
+    }
+    if (stat === null && isDynamicPattern(arg)) {
+      const from: ArgumentYield = { arg, kind: 'pattern', root: resolve(cwd, staticPrefix(arg)), found: 0, excludedBy: new Set() };
+      yields.push(from);
+      const matches = globSync(arg, { cwd, onlyFiles: true, dot: false, ignore: ['**/node_modules/**'], expandDirectories: false });
+      if (matches.length === 0) problems.push({ path: arg, text: null, problem: 'no file matches this pattern' });
+      for (const m of matches) add(toPosix(m), from);
+      continue;
+    }
+    if (stat === null) {
       problems.push({ path: arg, text: null, problem: 'no such file or folder' });
       continue;
     }
     if (stat.isDirectory()) {
+      const from: ArgumentYield = { arg, kind: 'folder', root: abs, found: 0, excludedBy: new Set() };
+      yields.push(from);
       const base = toPosix(relative(cwd, abs)) || '.';
-      for (const m of globSync(`**/*${NOTE_EXTENSION}`, { cwd: abs, onlyFiles: true, dot: false, ignore: ['**/node_modules/**'] })) {
-        found.add(base === '.' ? toPosix(m) : `${base}/${toPosix(m)}`);
+      // `.pneu` in any case: a note saved as NOTE.PNEU is a note (and on a case-insensitive disk,
+      // the same name).
+      for (const m of globSync(`**/*${NOTE_EXTENSION}`, { cwd: abs, onlyFiles: true, dot: false, caseSensitiveMatch: false, ignore: ['**/node_modules/**'] })) {
+        add(base === '.' ? toPosix(m) : `${base}/${toPosix(m)}`, from);
       }
     } else {
-      found.add(isAbsolute(arg) ? toPosix(relative(cwd, abs)) || toPosix(abs) : toPosix(normalize(arg)));
+      const from: ArgumentYield = { arg, kind: 'file', root: dirname(abs), found: 0, excludedBy: new Set() };
+      yields.push(from);
+      add(isAbsolute(arg) ? toPosix(relative(cwd, abs)) || toPosix(abs) : toPosix(normalize(arg)), from);
     }
   }
-  const filter = exclusions(cwd, exclude);
-  const files = onePathPerNote([...found].filter((f) => !filter(f)).sort(comparePaths), cwd);
+  const excludedBy = exclusions(cwd, exclude);
+  const kept: string[] = [];
+  for (const [path, by] of found) {
+    const source = excludedBy(path, by[0]!.root);
+    if (source === null) kept.push(path);
+    else for (const from of by) from.excludedBy.add(source);
+  }
+  const files = onePathPerNote(kept.sort(comparePaths), cwd);
+  if (files.length === 0 && !stdin && problems.length === 0) {
+    // Nothing to read, and nothing said so far: a CI job pointed at the wrong folder must not pass.
+    for (const from of yields) problems.push({ path: from.arg, text: null, problem: nothingFound(from) });
+  }
   if (stdin) files.push('-');
   return { files, problems };
 }
 
+/** Why an argument brought in no note (every argument brought in none). */
+function nothingFound(from: ArgumentYield): string {
+  const by = [...from.excludedBy].sort().join(' and ');
+  if (from.kind === 'file') return `excluded by ${by || 'an exclusion'}; no note left to read`;
+  if (from.found === 0) return `no ${NOTE_EXTENSION} notes found in this folder (hidden folders and node_modules are skipped)`;
+  const what = from.kind === 'folder' ? `${NOTE_EXTENSION} note${from.found === 1 ? '' : 's'} in this folder` : `file${from.found === 1 ? '' : 's'} this pattern matches`;
+  return `no note left to read: the ${from.found === 1 ? '' : `${from.found} `}${what} ${from.found === 1 ? 'is' : 'are'} excluded by ${by || 'an exclusion'}`;
+}
+
+/** Whether a path made by `relative` leads out of its folder. */
+function outside(rel: string): boolean {
+  return rel === '..' || rel.startsWith(`..${sep}`) || isAbsolute(rel);
+}
+
+/** The part of a glob pattern before its first segment with pattern characters (`.` if none). */
+function staticPrefix(pattern: string): string {
+  const fixed: string[] = [];
+  for (const segment of pattern.split('/')) {
+    if (isDynamicPattern(segment)) break;
+    fixed.push(segment);
+  }
+  const prefix = fixed.join('/');
+  return prefix === '' ? (pattern.startsWith('/') ? '/' : '.') : prefix;
+}
 /**
  * Each note once, under the first of its paths in sorted order: a folder reached through a
  * symbolic link (or a note linked into a folder, or named twice) would otherwise be checked and
@@ -91,25 +163,42 @@ function comparePaths(a: string, b: string): number {
   return a < b ? -1 : a > b ? 1 : 0;
 }
 
-/** A predicate that says whether a path (relative to cwd) is excluded. */
-function exclusions(cwd: string, exclude: readonly string[]): (path: string) => boolean {
-  const rules = ignore();
+/**
+ * Which exclusion (if any) leaves a note out. Patterns (gitignore syntax) are matched against the
+ * note's path relative to the working folder, where the `.pneuignore` and the command line belong;
+ * a note outside the working folder is matched by its path relative to `root`, the folder named on
+ * the command line that brought it in (for a file, its folder; for a pattern, its fixed part), so
+ * `check ../notes --exclude old.pneu` leaves out `../notes/old.pneu`.
+ */
+function exclusions(cwd: string, exclude: readonly string[]): (path: string, root: string) => ExclusionSource | null {
+  const fromFile: Ignore = ignore();
   const file = join(cwd, IGNORE_FILE);
   if (existsSync(file)) {
     try {
-      rules.add(readFileSync(file, 'utf8'));
+      fromFile.add(readFileSync(file, 'utf8'));
     } catch {
       // an unreadable ignore file excludes nothing
     }
   }
-  rules.add([...exclude]);
-  return (path: string) => {
-    const rel = path.startsWith('../') || isAbsolute(path) ? null : path.replace(/^\.\//, '');
-    return rel !== null && rel !== '' && rules.ignores(rel);
+  const fromArgs: Ignore = ignore().add([...exclude]);
+  return (path: string, root: string) => {
+    const abs = resolve(cwd, path);
+    let rel = relative(cwd, abs);
+    if (outside(rel)) rel = relative(root, abs);
+    if (rel === '' || outside(rel)) return null;
+    const posix = toPosix(rel);
+    if (fromFile.ignores(posix)) return IGNORE_FILE;
+    if (fromArgs.ignores(posix)) return '--exclude';
+    return null;
   };
 }
 
-export function readNote(path: string, cwd: string, stdin: () => Buffer): NoteInput {
+/**
+ * Reads a note. Its bytes must be UTF-8 (a byte-order mark is allowed and left out of the text
+ * unless `keepBom`): a note in another encoding gets a problem rather than text with replacement
+ * characters, which would be checked, exported or formatted as something it does not say.
+ */
+export function readNote(path: string, cwd: string, stdin: () => Buffer, options: { readonly keepBom?: boolean } = {}): NoteInput {
   let bytes: Buffer;
   const shown = path === '-' ? '<stdin>' : path;
   try {
@@ -135,8 +224,10 @@ export function readNote(path: string, cwd: string, stdin: () => Buffer): NoteIn
   }
   if (bytes.length > MAX_NOTE_BYTES) return { path: shown, text: null, problem: `too large to check (the limit is ${MAX_NOTE_BYTES / 1048576} MB)` };
   if (looksBinary(bytes)) return { path: shown, text: null, problem: 'looks like a binary file, not a note' };
+  const notUtf8 = utf8Problem(bytes);
+  if (notUtf8 !== null) return { path: shown, text: null, problem: `${notUtf8}; convert it to UTF-8 to read it` };
   let text = bytes.toString('utf8');
-  if (text.charCodeAt(0) === 0xfeff) text = text.slice(1);
+  if (text.charCodeAt(0) === 0xfeff && options.keepBom !== true) text = text.slice(1);
   return { path: shown, text, problem: null };
 }
 
@@ -157,4 +248,38 @@ export function looksBinary(bytes: Buffer): boolean {
   const n = Math.min(bytes.length, 8192);
   for (let i = 0; i < n; i++) if (bytes[i] === 0) return true;
   return false;
+}
+
+/**
+ * `null` for bytes that are UTF-8 text, otherwise what is wrong, with where (`is not UTF-8 text
+ * (byte 0xE9 on line 3)`): a note saved as Latin-1 or Windows-1252 must be converted, not guessed at.
+ */
+export function utf8Problem(bytes: Uint8Array): string | null {
+  if (isUtf8(bytes)) return null;
+  const at = firstInvalidUtf8(bytes);
+  if (at < 0) return 'is not UTF-8 text';
+  let line = 1;
+  for (let i = 0; i < at; i++) if (bytes[i] === 0x0a) line++;
+  return `is not UTF-8 text (byte 0x${bytes[at]!.toString(16).toUpperCase().padStart(2, '0')} on line ${line})`;
+}
+
+/** The offset of the first byte that does not belong to a well-formed UTF-8 sequence, or -1. */
+function firstInvalidUtf8(bytes: Uint8Array): number {
+  const n = bytes.length;
+  let i = 0;
+  while (i < n) {
+    const b = bytes[i]!;
+    if (b < 0x80) { i++; continue; }
+    const follow = b >= 0xc2 && b <= 0xdf ? 1 : b >= 0xe0 && b <= 0xef ? 2 : b >= 0xf0 && b <= 0xf4 ? 3 : 0;
+    if (follow === 0) return i;
+    // The second byte's range excludes overlong forms, surrogates and code points above U+10FFFF.
+    const low = b === 0xe0 ? 0xa0 : b === 0xf0 ? 0x90 : 0x80;
+    const high = b === 0xed ? 0x9f : b === 0xf4 ? 0x8f : 0xbf;
+    for (let k = 1; k <= follow; k++) {
+      const c = bytes[i + k];
+      if (c === undefined || c < (k === 1 ? low : 0x80) || c > (k === 1 ? high : 0xbf)) return i;
+    }
+    i += follow + 1;
+  }
+  return -1;
 }

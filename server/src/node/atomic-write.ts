@@ -3,8 +3,10 @@
  * note (same folder, so the rename is atomic), is flushed, and replaces the note by rename only if
  * the note on disk is still exactly what was read. A write interrupted at any point leaves either
  * the original or the new note, never a mix; a note edited by someone else meanwhile is left alone.
+ * A note reached through a symbolic link is written where the link leads (the temporary file goes
+ * beside the real note, on its file system): the link stays a link, and the note it names changes.
  */
-import { closeSync, fsyncSync, openSync, readFileSync, renameSync, statSync, unlinkSync, writeSync } from 'node:fs';
+import { closeSync, fsyncSync, openSync, readFileSync, realpathSync, renameSync, statSync, unlinkSync, writeSync } from 'node:fs';
 import { basename, dirname, join } from 'node:path';
 
 export interface ReadSnapshot {
@@ -12,12 +14,15 @@ export interface ReadSnapshot {
   readonly bytes: Buffer;
   readonly mtimeMs: number;
   readonly size: number;
+  /** The note's real path (symbolic links resolved) when it was read. */
+  readonly realPath: string;
 }
 
 export function readSnapshot(path: string): ReadSnapshot {
-  const bytes = readFileSync(path);
-  const stat = statSync(path);
-  return { bytes, text: bytes.toString('utf8'), mtimeMs: stat.mtimeMs, size: stat.size };
+  const realPath = realpathSync.native(path);
+  const bytes = readFileSync(realPath);
+  const stat = statSync(realPath);
+  return { bytes, text: bytes.toString('utf8'), mtimeMs: stat.mtimeMs, size: stat.size, realPath };
 }
 
 export type WriteOutcome = 'written' | 'changed-on-disk';
@@ -26,8 +31,13 @@ export type WriteOutcome = 'written' | 'changed-on-disk';
 export type BeforeRename = (tempPath: string) => void;
 
 export function writeIfUnchanged(path: string, snapshot: ReadSnapshot, text: string, beforeRename?: BeforeRename): WriteOutcome {
-  const temp = join(dirname(path), `.${basename(path)}.pneumark-${process.pid}-${Date.now()}.tmp`);
-  const fd = openSync(temp, 'wx', statSync(path).mode & 0o777);
+  // Renaming over a symbolic link would replace the link with a file and leave the note unchanged:
+  // write the note the link leads to. A link that now leads elsewhere than when the note was read
+  // counts as a change on disk.
+  const real = realpathSync.native(path);
+  if (real !== snapshot.realPath) return 'changed-on-disk';
+  const temp = join(dirname(real), `.${basename(real)}.pneumark-${process.pid}-${Date.now()}.tmp`);
+  const fd = openSync(temp, 'wx', statSync(real).mode & 0o777);
   try {
     const data = Buffer.from(text, 'utf8');
     let offset = 0;
@@ -41,11 +51,11 @@ export function writeIfUnchanged(path: string, snapshot: ReadSnapshot, text: str
   closeSync(fd);
   try {
     beforeRename?.(temp);
-    if (!unchanged(path, snapshot)) {
+    if (!unchanged(real, snapshot)) {
       safeUnlink(temp);
       return 'changed-on-disk';
     }
-    renameSync(temp, path);
+    renameSync(temp, real);
     return 'written';
   } catch (error) {
     safeUnlink(temp);

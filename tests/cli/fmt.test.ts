@@ -1,0 +1,139 @@
+// `pneumark fmt` on awkward files: names that look like patterns, symbolic links, notes that are
+// not UTF-8, byte-order marks when printing, and what it says when inputs are missing.
+import { lstatSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, readlinkSync, statSync, symlinkSync, writeFileSync, chmodSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { Writable } from 'node:stream';
+import { describe, expect, it } from 'vitest';
+import type { Io } from '../../server/src/cli/args';
+import { run } from '../../server/src/cli/main';
+
+function io(cwd: string): Io & { out: () => string; err: () => string } {
+  let out = '';
+  let err = '';
+  return {
+    cwd,
+    env: { NO_COLOR: '1' },
+    stdout: { write: (s: string) => { out += s; return true; }, isTTY: false },
+    stderr: new Writable({ write(chunk: Buffer, _e, done) { err += chunk.toString(); done(); } }),
+    stdin: () => Buffer.alloc(0),
+    out: () => out,
+    err: () => err,
+  };
+}
+
+const messy = '@ 08:00   first\nvitals hr 80,rr 12 ,  spo2 97 %\n';
+const tidy = '@ 08:00  first\nvitals    hr 80, rr 12, spo2 97 %\n';
+
+function tempDir(): string {
+  return mkdtempSync(join(tmpdir(), 'pneumark-fmt-'));
+}
+
+describe('fmt --write on files named like patterns', () => {
+  it('rewrites the file named, not the one the brackets would match', async () => {
+    const dir = tempDir();
+    writeFileSync(join(dir, 'a[1].pneu'), messy);
+    writeFileSync(join(dir, 'a1.pneu'), messy);
+    const out = io(dir);
+    expect(await run(['fmt', '--write', 'a[1].pneu'], out)).toBe(0);
+    expect(out.out()).toBe('formatted a[1].pneu\n');
+    expect(readFileSync(join(dir, 'a[1].pneu'), 'utf8')).toBe(tidy);
+    expect(readFileSync(join(dir, 'a1.pneu'), 'utf8')).toBe(messy);
+  });
+});
+
+describe('fmt --write on a symbolic link', () => {
+  it('formats the note the link leads to and keeps the link', async () => {
+    const dir = tempDir();
+    mkdirSync(join(dir, 'real'));
+    mkdirSync(join(dir, 'links'));
+    const target = join(dir, 'real', 'note.pneu');
+    writeFileSync(target, messy);
+    chmodSync(target, 0o640);
+    symlinkSync('../real/note.pneu', join(dir, 'links', 'note.pneu'), 'file');
+    const out = io(dir);
+    expect(await run(['fmt', '--write', 'links/note.pneu'], out)).toBe(0);
+    expect(out.err()).toBe('');
+    expect(lstatSync(join(dir, 'links', 'note.pneu')).isSymbolicLink()).toBe(true);
+    expect(readlinkSync(join(dir, 'links', 'note.pneu'))).toBe('../real/note.pneu');
+    expect(readFileSync(target, 'utf8')).toBe(tidy);
+    expect(statSync(target).mode & 0o777).toBe(0o640);
+    // The temporary file went beside the real note and is gone; nothing was left beside the link.
+    expect(readdirSync(join(dir, 'real'))).toEqual(['note.pneu']);
+    expect(readdirSync(join(dir, 'links'))).toEqual(['note.pneu']);
+  });
+
+  it('formats a note reached through a linked folder', async () => {
+    const dir = tempDir();
+    mkdirSync(join(dir, 'real'));
+    writeFileSync(join(dir, 'real', 'note.pneu'), messy);
+    symlinkSync(join(dir, 'real'), join(dir, 'linked'), 'dir');
+    expect(await run(['fmt', '--write', 'linked/note.pneu'], io(dir))).toBe(0);
+    expect(lstatSync(join(dir, 'linked')).isSymbolicLink()).toBe(true);
+    expect(readFileSync(join(dir, 'real', 'note.pneu'), 'utf8')).toBe(tidy);
+  });
+});
+
+describe('fmt on notes that are not UTF-8', () => {
+  const latin1 = Buffer.concat([Buffer.from('@ 08:00   r'), Buffer.from([0xe9]), Buffer.from('veil\nvitals hr 80,rr 12 ,  spo2 97 %\n')]);
+
+  it('refuses --write and --check with one line and exit 2, leaving the bytes as they were', async () => {
+    const dir = tempDir();
+    writeFileSync(join(dir, 'latin1.pneu'), latin1);
+    writeFileSync(join(dir, 'fine.pneu'), messy);
+    const written = io(dir);
+    expect(await run(['fmt', '--write', '.'], written)).toBe(2);
+    expect(written.err()).toBe('pneumark: latin1.pneu: is not UTF-8 text (byte 0xE9 on line 1); not rewritten (convert it to UTF-8 first)\n');
+    expect(readFileSync(join(dir, 'latin1.pneu')).equals(latin1)).toBe(true);
+    expect(readFileSync(join(dir, 'fine.pneu'), 'utf8')).toBe(tidy); // the other notes are still formatted
+    const checked = io(dir);
+    expect(await run(['fmt', '--check', 'latin1.pneu'], checked)).toBe(2);
+    expect(checked.err()).toBe('pneumark: latin1.pneu: is not UTF-8 text (byte 0xE9 on line 1); not checked (convert it to UTF-8 first)\n');
+    const printed = io(dir);
+    expect(await run(['fmt', 'latin1.pneu'], printed)).toBe(2);
+    expect(printed.out()).toBe('');
+    expect(printed.err()).toMatch(/^pneumark: latin1\.pneu: is not UTF-8 text \(byte 0xE9 on line 1\)[^\n]*\n$/);
+    expect(readFileSync(join(dir, 'latin1.pneu')).equals(latin1)).toBe(true);
+  });
+
+  it('names the line of the first byte that is not UTF-8', async () => {
+    const dir = tempDir();
+    writeFileSync(join(dir, 'a.pneu'), Buffer.concat([Buffer.from('@ 08:00\nvitals hr 80\nnote caf'), Buffer.from([0xe9, 0x0a])]));
+    const out = io(dir);
+    expect(await run(['fmt', '--check', 'a.pneu'], out)).toBe(2);
+    expect(out.err()).toMatch(/byte 0xE9 on line 3/);
+  });
+});
+
+describe('fmt printing a note', () => {
+  it('keeps a byte-order mark, as --write does', async () => {
+    const dir = tempDir();
+    writeFileSync(join(dir, 'a.pneu'), `\uFEFF${messy}`);
+    const out = io(dir);
+    expect(await run(['fmt', 'a.pneu'], out)).toBe(0);
+    expect(out.out()).toBe(`\uFEFF${tidy}`);
+  });
+
+  it('says which files are missing, without a usage message that does not apply', async () => {
+    const dir = tempDir();
+    const out = io(dir);
+    expect(await run(['fmt', 'a.pneu', 'b.pneu'], out)).toBe(2);
+    expect(out.err()).toBe('pneumark: a.pneu: no such file or folder\npneumark: b.pneu: no such file or folder\n');
+    const one = io(dir);
+    expect(await run(['fmt', 'a.pneu'], one)).toBe(2);
+    expect(one.err()).toBe('pneumark: a.pneu: no such file or folder\n');
+  });
+
+  it('says how many notes it was given when given several', async () => {
+    const dir = tempDir();
+    writeFileSync(join(dir, 'a.pneu'), messy);
+    writeFileSync(join(dir, 'b.pneu'), messy);
+    const out = io(dir);
+    expect(await run(['fmt', 'a.pneu', 'b.pneu'], out)).toBe(2);
+    expect(out.err()).toBe('pneumark fmt: without --check or --write, fmt prints one note, and these inputs hold 2; add --check or --write to work on several\n');
+    const folder = io(dir);
+    expect(await run(['fmt', '.'], folder)).toBe(2);
+    expect(folder.err()).toBe('pneumark fmt: without --check or --write, fmt prints one note, and . holds 2; add --check or --write to work on several\n');
+    expect(folder.out()).toBe('');
+  });
+});

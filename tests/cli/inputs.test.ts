@@ -1,0 +1,203 @@
+// Which notes a command reads: paths that look like patterns, exclusions outside the working
+// folder, inputs that hold no note, extensions in any case, and notes that are not UTF-8.
+import { mkdirSync, mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { Writable } from 'node:stream';
+import { describe, expect, it } from 'vitest';
+import type { Io } from '../../server/src/cli/args';
+import { run } from '../../server/src/cli/main';
+
+function io(cwd: string, stdinText: string | Buffer = ''): Io & { out: () => string; err: () => string } {
+  let out = '';
+  let err = '';
+  return {
+    cwd,
+    env: { NO_COLOR: '1' },
+    stdout: { write: (s: string) => { out += s; return true; }, isTTY: false },
+    stderr: new Writable({ write(chunk: Buffer, _e, done) { err += chunk.toString(); done(); } }),
+    stdin: () => Buffer.from(stdinText),
+    out: () => out,
+    err: () => err,
+  };
+}
+
+const clean = '@ 08:00\nvitals hr 80\n';
+const alarming = '@ 08:00\nvitals spo2 104\n'; // an error-level finding, so its path shows in the output
+
+function tempDir(): string {
+  return mkdtempSync(join(tmpdir(), 'pneumark-inputs-'));
+}
+
+/** The note paths a text report names (findings are printed as `path:line:column`). */
+function reported(text: string): string[] {
+  return [...new Set(text.split('\n').filter((l) => /\.pneu:\d/i.test(l)).map((l) => l.replace(/:\d+:\d+.*$/, '')))];
+}
+
+describe('a path that exists is a path, never a pattern', () => {
+  it('checks a file whose name has brackets, not the file the brackets would match', async () => {
+    const dir = tempDir();
+    writeFileSync(join(dir, 'a[1].pneu'), alarming);
+    writeFileSync(join(dir, 'a1.pneu'), alarming);
+    const out = io(dir);
+    expect(await run(['check', 'a[1].pneu'], out)).toBe(1);
+    expect(reported(out.out())).toEqual(['a[1].pneu']);
+    expect(out.out()).toMatch(/1 note checked/);
+  });
+
+  it('walks folders named like patterns (brackets, parentheses)', async () => {
+    const dir = tempDir();
+    mkdirSync(join(dir, 'ward [A]'));
+    mkdirSync(join(dir, 'notes (copy)'));
+    writeFileSync(join(dir, 'ward [A]', 'one.pneu'), alarming);
+    writeFileSync(join(dir, 'notes (copy)', 'two.pneu'), alarming);
+    const out = io(dir);
+    expect(await run(['check', 'ward [A]', 'notes (copy)'], out)).toBe(1);
+    expect(out.err()).toBe('');
+    expect(reported(out.out())).toEqual(['notes (copy)/two.pneu', 'ward [A]/one.pneu']);
+  });
+
+  it('still expands a pattern that names no existing path', async () => {
+    const dir = tempDir();
+    writeFileSync(join(dir, 'a1.pneu'), alarming);
+    writeFileSync(join(dir, 'a2.pneu'), alarming);
+    const out = io(dir);
+    expect(await run(['check', 'a[12].pneu'], out)).toBe(1);
+    expect(reported(out.out())).toEqual(['a1.pneu', 'a2.pneu']);
+  });
+});
+
+describe('inputs that hold no note', () => {
+  it('fail with one line when a folder has no notes, for check, export and fmt', async () => {
+    const dir = tempDir();
+    mkdirSync(join(dir, 'empty'));
+    writeFileSync(join(dir, 'empty', 'readme.txt'), 'not a note');
+    for (const args of [['check', 'empty'], ['export', 'empty', '--format', 'csv'], ['fmt', '--check', 'empty'], ['fmt', '--write', 'empty'], ['fmt', 'empty']]) {
+      const out = io(dir);
+      expect(await run(args, out), args.join(' ')).toBe(2);
+      expect(out.err(), args.join(' ')).toBe('pneumark: empty: no .pneu notes found in this folder (hidden folders and node_modules are skipped)\n');
+    }
+  });
+
+  it('fail when --exclude or .pneuignore leaves nothing, and say which excluded it', async () => {
+    const dir = tempDir();
+    writeFileSync(join(dir, 'one.pneu'), clean);
+    writeFileSync(join(dir, 'two.pneu'), clean);
+    const excluded = io(dir);
+    expect(await run(['check', '.', '--exclude', '*.pneu'], excluded)).toBe(2);
+    expect(excluded.err()).toBe('pneumark: .: no note left to read: the 2 .pneu notes in this folder are excluded by --exclude\n');
+    writeFileSync(join(dir, '.pneuignore'), 'one.pneu\n');
+    const ignored = io(dir);
+    expect(await run(['check', 'one.pneu'], ignored)).toBe(2);
+    expect(ignored.err()).toBe('pneumark: one.pneu: excluded by .pneuignore; no note left to read\n');
+    const pattern = io(dir);
+    expect(await run(['export', 'o*.pneu', '--format', 'jsonl'], pattern)).toBe(2);
+    expect(pattern.err()).toBe('pneumark: o*.pneu: no note left to read: the file this pattern matches is excluded by .pneuignore\n');
+  });
+
+  it('pass as before when some input holds a note, or a note comes on standard input', async () => {
+    const dir = tempDir();
+    mkdirSync(join(dir, 'empty'));
+    writeFileSync(join(dir, 'one.pneu'), clean);
+    const some = io(dir);
+    expect(await run(['check', 'empty', 'one.pneu'], some)).toBe(0);
+    expect(some.err()).toBe('');
+    const stdin = io(dir, clean);
+    expect(await run(['check', 'empty', '-'], stdin)).toBe(0);
+    expect(stdin.err()).toBe('');
+  });
+});
+
+describe('folder scans', () => {
+  it('find notes whose extension is in any case, and skip hidden folders and files', async () => {
+    const dir = tempDir();
+    mkdirSync(join(dir, '.hidden'));
+    writeFileSync(join(dir, 'UPPER.PNEU'), alarming);
+    writeFileSync(join(dir, 'mixed.Pneu'), alarming);
+    writeFileSync(join(dir, 'plain.pneu'), alarming);
+    writeFileSync(join(dir, '.dotted.pneu'), alarming);
+    writeFileSync(join(dir, '.hidden', 'inside.pneu'), alarming);
+    const out = io(dir);
+    expect(await run(['check', '.'], out)).toBe(1);
+    expect(reported(out.out())).toEqual(['UPPER.PNEU', 'mixed.Pneu', 'plain.pneu']);
+  });
+});
+
+describe('exclusions for notes outside the working folder', () => {
+  it('match --exclude relative to the folder named on the command line', async () => {
+    const top = tempDir();
+    mkdirSync(join(top, 'work'));
+    mkdirSync(join(top, 'notes', 'old'), { recursive: true });
+    writeFileSync(join(top, 'notes', 'one.pneu'), alarming);
+    writeFileSync(join(top, 'notes', 'two.pneu'), alarming);
+    writeFileSync(join(top, 'notes', 'old', 'three.pneu'), alarming);
+    const cwd = join(top, 'work');
+    const named = io(cwd);
+    await run(['check', '../notes', '--exclude', 'two.pneu', '--exclude', '/old/'], named);
+    expect(reported(named.out())).toEqual(['../notes/one.pneu']);
+    const absolute = io(cwd);
+    await run(['check', join(top, 'notes'), '--exclude', 'two.pneu'], absolute);
+    expect(reported(absolute.out())).toEqual(['../notes/old/three.pneu', '../notes/one.pneu']);
+    const pattern = io(cwd);
+    await run(['check', '../notes/**/*.pneu', '--exclude', 'old/'], pattern);
+    expect(reported(pattern.out())).toEqual(['../notes/one.pneu', '../notes/two.pneu']);
+    const file = io(cwd);
+    await run(['check', '../notes/two.pneu', '../notes/one.pneu', '--exclude', 'two.pneu'], file);
+    expect(reported(file.out())).toEqual(['../notes/one.pneu']);
+  });
+
+  it('match the working folder’s .pneuignore the same way', async () => {
+    const top = tempDir();
+    mkdirSync(join(top, 'work'));
+    mkdirSync(join(top, 'notes'));
+    writeFileSync(join(top, 'notes', 'one.pneu'), alarming);
+    writeFileSync(join(top, 'notes', 'draft.pneu'), alarming);
+    writeFileSync(join(top, 'work', '.pneuignore'), 'draft.pneu\n');
+    const out = io(join(top, 'work'));
+    await run(['check', '../notes'], out);
+    expect(reported(out.out())).toEqual(['../notes/one.pneu']);
+  });
+
+  it('still match relative to the working folder for notes inside it', async () => {
+    const dir = tempDir();
+    mkdirSync(join(dir, 'ward', 'old'), { recursive: true });
+    writeFileSync(join(dir, 'ward', 'one.pneu'), alarming);
+    writeFileSync(join(dir, 'ward', 'old', 'two.pneu'), alarming);
+    const out = io(dir);
+    await run(['check', 'ward', '--exclude', '/ward/old/'], out);
+    expect(reported(out.out())).toEqual(['ward/one.pneu']);
+  });
+});
+
+describe('notes that are not UTF-8', () => {
+  const latin1 = Buffer.concat([Buffer.from('@ 08:00 r'), Buffer.from([0xe9]), Buffer.from('veil\nvitals hr 80\n')]);
+
+  it('get a one-line problem and exit 2 from check, export and show', async () => {
+    const dir = tempDir();
+    writeFileSync(join(dir, 'latin1.pneu'), latin1);
+    writeFileSync(join(dir, 'fine.pneu'), clean);
+    const checked = io(dir);
+    expect(await run(['check', '.', '--format', 'json'], checked)).toBe(2);
+    expect(checked.err()).toBe('pneumark: latin1.pneu: is not UTF-8 text (byte 0xE9 on line 1); convert it to UTF-8 to read it\n');
+    const files = (JSON.parse(checked.out()) as { files: { path: string; problem: string | null }[] }).files;
+    expect(files.map((f) => [f.path, f.problem === null])).toEqual([['fine.pneu', true], ['latin1.pneu', false]]);
+    const exported = io(dir);
+    expect(await run(['export', 'latin1.pneu', '--format', 'jsonl'], exported)).toBe(2);
+    expect(exported.out()).toBe('');
+    expect(exported.err()).toMatch(/^pneumark: latin1\.pneu: is not UTF-8 text \(byte 0xE9 on line 1\)/);
+    const shown = io(dir);
+    expect(await run(['show', 'latin1.pneu'], shown)).toBe(2);
+    expect(shown.err().trim().split('\n')).toHaveLength(1);
+    const stdin = io(dir, latin1);
+    expect(await run(['check', '-'], stdin)).toBe(2);
+    expect(stdin.err()).toMatch(/^pneumark: <stdin>: is not UTF-8 text/);
+  });
+
+  it('reads UTF-8 with or without a byte-order mark as before', async () => {
+    const dir = tempDir();
+    writeFileSync(join(dir, 'bom.pneu'), `\uFEFF@ 08:00 réveil\nvitals hr 80\n`);
+    const out = io(dir);
+    expect(await run(['check', 'bom.pneu'], out)).toBe(0);
+    expect(out.err()).toBe('');
+  });
+});
