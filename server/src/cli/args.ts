@@ -32,8 +32,9 @@ or - for standard input. A .pneuignore file in the working folder excludes paths
 Run \`pneumark COMMAND --help\` for a command's options.
 
 Exit codes: 0 clean; 1 findings at error level, more warnings than --max-warnings, or notes that
-fmt --check would change; 2 a usage error, a note that could not be read, or standard output
-closed early (e.g. by head).
+fmt --check would change; 2 a usage error, a note that could not be read, an invalid
+pneumark.config.json (one line per problem on standard error; the run goes on with the defaults
+for that file), or standard output closed early (e.g. by head).
 
 ${CAUTION}`,
   show: `Usage: pneumark show FILE
@@ -46,8 +47,8 @@ Colour on a terminal; set NO_COLOR to turn it off.`,
 
 Options:
   --format text|json|sarif   output format (default text); sarif is SARIF 2.1.0 for code-scanning tools
-  --quiet                    report errors only (text and sarif)
-  --max-warnings N           exit 1 when there are more than N warnings
+  --quiet                    list error findings only (text, json and sarif; totals count all)
+  --max-warnings N           exit 1 when there are more than N warnings (N a whole number, 0 or more)
   --exclude PATTERN          leave out paths matching PATTERN (gitignore syntax; repeatable)
   --jobs N                   worker threads (0 or 1: none); default one per core, up to 4, from 200 notes
   --no-progress              no progress bar, even on a terminal`,
@@ -57,7 +58,8 @@ Options:
   --format csv|jsonl|fhir    csv: one row per timepoint with a header; jsonl: one JSON object per
                              timepoint; fhir: one FHIR R4 Bundle of Observations per note (a JSON array)
   --redact                   drop free text (timepoint labels) from the export
-  --shift-days N             add N days to every day number and time offset (de-identification)
+  --shift-days N             add N days to every day number and time offset (de-identification);
+                             N a whole number from -100000 to 100000, e.g. --shift-days -3
   --anchor DATETIME          FHIR only: the ISO date-time of day 1 00:00, to give observations a time
   --exclude PATTERN          leave out paths matching PATTERN (repeatable)
   --jobs N                   worker threads (0 or 1: none); default one per core, up to 4, from 200 notes
@@ -71,33 +73,117 @@ Without --check or --write, prints the formatted note (one file only).
                --force, and a note changed on disk while being formatted is never overwritten
   --force      also rewrite notes that have syntax errors (their broken lines are kept as they are)
   --exclude PATTERN   leave out paths matching PATTERN (repeatable)`,
-  docs: `Usage: pneumark docs [--write FILE] [--grammar FILE]
+  docs: `Usage: pneumark docs [--write FILE] [--grammar FILE] [--readme FILE]
 
-Prints (or writes) the documentation of every check, generated from the check registry.`,
+Prints (or writes) the documentation of every check, generated from the check registry.
+  --write FILE     write it to FILE instead of standard output
+  --grammar FILE   regenerate the generated tables in FILE (grammar/README.md)
+  --readme FILE    regenerate the export columns in FILE (README.md)`,
 };
 
 export class UsageError extends Error {}
 
-const JOBS = { message: 'expected a whole number from 0 to 64' };
+/**
+ * An option that takes a whole number: only plain decimal digits (with a sign when `signed`), in
+ * `min`–`max`. Anything else (an empty string, `0x10`, `1e3`, `1.5`, spaces) is refused with
+ * `message` rather than read as some number: an option such as --shift-days must never silently
+ * mean 0.
+ */
+export function wholeNumberOption(min: number, max: number, message: string, signed = false): z.ZodType<number, string> {
+  const digits = signed ? /^[+-]?\d{1,15}$/ : /^\d{1,15}$/;
+  return z.string({ message })
+    .regex(digits, { message })
+    .transform(Number)
+    .pipe(z.number().int({ message }).min(min, { message }).max(max, { message }));
+}
 
 /** `--jobs N`: worker threads for check and export (0 or 1: this thread only). */
-export const jobsOption = z.coerce.number(JOBS).int(JOBS).min(0, JOBS).max(64, JOBS).optional();
+export const jobsOption = wholeNumberOption(0, 64, 'expected a whole number from 0 to 64').optional();
 
 type OptionSpec = Record<string, { type: 'string' | 'boolean'; short?: string; multiple?: boolean }>;
 
-/** Parses options strictly; each command validates the values with zod. */
+/** A number with a minus sign (`-3`, `-0.5`): after an option that takes a value, that value. */
+const NEGATIVE_NUMBER = /^-\d/;
+
+/**
+ * Parses options strictly; each command validates the values with zod. A negative number right
+ * after an option that takes a value is that option's value (`--shift-days -3`), as
+ * `--shift-days=-3` would be. Errors are one line that names the option as typed.
+ */
 export function parse(args: readonly string[], options: OptionSpec): { positionals: string[]; values: Record<string, string | boolean | string[] | undefined> } {
+  const joined: string[] = [];
+  for (let i = 0; i < args.length; i++) {
+    const arg = args[i]!;
+    if (arg === '--') { joined.push(...args.slice(i)); break; }
+    const next = args[i + 1];
+    const name = arg.startsWith('--') && !arg.includes('=') ? arg.slice(2) : null;
+    if (name !== null && options[name]?.type === 'string' && next !== undefined && NEGATIVE_NUMBER.test(next)) {
+      joined.push(`${arg}=${next}`);
+      i++;
+    } else {
+      joined.push(arg);
+    }
+  }
   try {
-    const parsed = parseArgs({ args: [...args], options: { help: { type: 'boolean', short: 'h' }, ...options }, allowPositionals: true, strict: true });
+    const parsed = parseArgs({ args: joined, options: { help: { type: 'boolean', short: 'h' }, ...options }, allowPositionals: true, strict: true });
     return { positionals: parsed.positionals, values: parsed.values as Record<string, string | boolean | string[] | undefined> };
   } catch (error) {
-    throw new UsageError(error instanceof Error ? error.message : String(error));
+    throw new UsageError(optionProblem(error));
   }
 }
 
-export function validate<T>(schema: z.ZodType<T>, input: unknown): T {
-  const parsed = schema.safeParse(input);
-  if (!parsed.success) throw new UsageError(parsed.error.issues.map((i) => `--${i.path.join('.')}: ${i.message}`).join('; '));
-  return parsed.data;
+/** Node's parseArgs error, in one line of our own words. */
+function optionProblem(error: unknown): string {
+  const message = error instanceof Error ? error.message : String(error);
+  const code = (error as { code?: unknown } | null)?.code;
+  const option = /'(-{1,2}[^'\s=<]+)/.exec(message)?.[1] ?? 'an option';
+  if (code === 'ERR_PARSE_ARGS_UNKNOWN_OPTION') return `unknown option ${option} (see --help)`;
+  if (code === 'ERR_PARSE_ARGS_INVALID_OPTION_VALUE') {
+    if (/argument missing/.test(message)) return `${option} needs a value`;
+    if (/does not take an argument/.test(message)) return `${option} takes no value`;
+    if (/ambiguous/.test(message)) return `${option} needs a value (write ${option}=VALUE for a value that starts with -)`;
+  }
+  return message.split('\n')[0] ?? message;
 }
 
+/** The option a schema key stands for, as typed: `maxWarnings` is `--max-warnings`. */
+function optionName(key: PropertyKey | undefined, names: Readonly<Record<string, string>>): string {
+  if (typeof key !== 'string') return 'an option';
+  return names[key] ?? `--${key.replace(/[A-Z]/g, (c) => `-${c.toLowerCase()}`)}`;
+}
+
+/** Plain wording for an option's value that has no message of its own in the schema. */
+function plainProblem(issue: z.core.$ZodRawIssue): string {
+  switch (issue.code) {
+    case 'too_small':
+      return issue.origin === 'string' ? 'must not be empty' : issue.origin === 'array' ? `must be given at least ${String(issue.minimum)} times` : `must be at least ${String(issue.minimum)}`;
+    case 'too_big':
+      return issue.origin === 'string' ? `is too long (at most ${String(issue.maximum)} characters)` : issue.origin === 'array' ? `can be given at most ${String(issue.maximum)} times` : `must be at most ${String(issue.maximum)}`;
+    case 'invalid_value':
+      return `must be one of ${issue.values.map(String).join(', ')}`;
+    case 'invalid_type':
+      return issue.expected === 'string' || issue.expected === 'number' ? 'needs a value' : 'is not valid here';
+    default:
+      return 'is not valid';
+  }
+}
+
+/**
+ * Validates a command's options. A problem is one line per option that names it as typed (`names`
+ * for those that are not the schema key in kebab case, such as `--no-progress`) and quotes the
+ * value given.
+ */
+export function validate<T>(schema: z.ZodType<T>, input: Readonly<Record<string, unknown>>, names: Readonly<Record<string, string>> = {}): T {
+  const parsed = schema.safeParse(input, { error: plainProblem });
+  if (parsed.success) return parsed.data;
+  const lines = new Map<string, string>();
+  for (const issue of parsed.error.issues) {
+    const [key, index] = issue.path;
+    const option = optionName(key, names);
+    if (lines.has(option)) continue;
+    const given: unknown = typeof key === 'string' ? input[key] : undefined;
+    const value = typeof index === 'number' && Array.isArray(given) ? (given as unknown[])[index] : given;
+    lines.set(option, `${option}: ${issue.message}${typeof value === 'string' ? ` (got ${JSON.stringify(value)})` : ''}`);
+  }
+  throw new UsageError([...lines.values()].join('; '));
+}

@@ -9,17 +9,19 @@ import { csvCells, csvHeader } from '../core/export/csv';
 import { exportColumns, timepointCells } from '../core/export/columns';
 import { anchorProblem, toFhirBundle } from '../core/export/fhir';
 import { toJsonl } from '../core/export/jsonl';
-import { EXIT, HELP, jobsOption, parse, UsageError, validate, type Io } from './args';
+import { EXIT, HELP, jobsOption, parse, UsageError, validate, wholeNumberOption, type Io } from './args';
+import { ConfigReport, reportConfigProblems } from './config-report';
 import { listInputs } from './inputs';
 import { Output } from './output';
+import { visible } from './visible';
 import { gather } from './pool';
 import { NoteWorker, written, type ExportRenderer, type FileReport } from './work';
 
 const exportOptions = z.object({
-  format: z.enum(['csv', 'jsonl', 'fhir'], { message: 'choose csv, jsonl or fhir' }),
+  format: z.enum(['csv', 'jsonl', 'fhir'], { error: (issue) => issue.input === undefined ? 'is needed: csv, jsonl or fhir' : 'choose csv, jsonl or fhir' }),
   redact: z.boolean().default(false),
-  shiftDays: z.coerce.number().int().min(-100000).max(100000).default(0),
-  anchor: z.string().max(64).nullable().default(null).refine((a) => a === null || anchorProblem(a) === null, { message: 'not an ISO 8601 date-time with a zone, e.g. 2026-01-05T00:00:00Z' }),
+  shiftDays: wholeNumberOption(-100000, 100000, 'expected a whole number of days from -100000 to 100000', true).optional(),
+  anchor: z.string().max(64, { message: 'is too long for a date-time' }).nullable().default(null).refine((a) => a === null || anchorProblem(a) === null, { message: 'not an ISO 8601 date-time with a zone, e.g. 2026-01-05T00:00:00Z' }),
   exclude: z.array(z.string().min(1).max(500)).max(100).default([]),
   jobs: jobsOption,
   progress: z.boolean().default(true),
@@ -54,11 +56,12 @@ export async function runExport(args: readonly string[], io: Io): Promise<number
     exclude: { type: 'string', multiple: true }, jobs: { type: 'string' }, 'no-progress': { type: 'boolean' },
   });
   if (values.help) { io.stdout.write(`${HELP.export}\n`); return EXIT.ok; }
-  const opts = validate(exportOptions, { format: values.format, redact: values.redact, shiftDays: values['shift-days'], anchor: values.anchor ?? null, exclude: values.exclude, jobs: values.jobs, progress: !values['no-progress'] });
+  const opts = validate(exportOptions, { format: values.format, redact: values.redact, shiftDays: values['shift-days'], anchor: values.anchor ?? null, exclude: values.exclude, jobs: values.jobs, progress: !values['no-progress'] }, { progress: '--no-progress' });
   if (opts.anchor && opts.format !== 'fhir') throw new UsageError('--anchor only applies to --format fhir');
   if (positionals.length === 0) throw new UsageError('export needs at least one file, folder, pattern or - (stdin)');
   const { files, problems } = listInputs(positionals, io.cwd, opts.exclude);
-  const task = { kind: 'export', format: opts.format, redactProse: opts.redact, shiftDays: opts.shiftDays, anchor: opts.anchor } as const;
+  const configs = new ConfigReport(io.cwd).notes(files);
+  const task = { kind: 'export', format: opts.format, redactProse: opts.redact, shiftDays: opts.shiftDays ?? 0, anchor: opts.anchor } as const;
   // Each note's piece is written as soon as it and the notes before it are in, then let go: an
   // export of a big folder is larger than one string can hold, and need not sit in memory.
   const output = new Output(io.stdout);
@@ -83,7 +86,8 @@ export async function runExport(args: readonly string[], io: Io): Promise<number
     ready: () => output.ready(),
   });
   if (opts.format === 'fhir') output.write('\n]\n');
-  for (const p of [...problems, ...reports.filter((r) => r.problem)]) io.stderr.write(`pneumark: ${p.path}: ${p.problem}\n`);
-  if (problems.length > 0 || reports.some((r) => r.problem)) return EXIT.usage;
+  const badConfig = reportConfigProblems(configs, io);
+  for (const p of [...problems, ...reports.filter((r) => r.problem)]) io.stderr.write(`pneumark: ${visible(p.path)}: ${p.problem}\n`);
+  if (badConfig || problems.length > 0 || reports.some((r) => r.problem)) return EXIT.usage;
   return reports.some((r) => r.findings.some((f) => f.severity === 'error')) ? EXIT.findings : EXIT.ok;
 }

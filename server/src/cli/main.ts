@@ -6,10 +6,12 @@
  * more warnings than --max-warnings, or notes `fmt --check` would change), 2 usage or I/O error.
  */
 import { readFileSync, writeFileSync } from 'node:fs';
+import { resolve } from 'node:path';
 import { isMainThread, parentPort, workerData } from 'node:worker_threads';
 import { z } from 'zod';
 import { checkNote } from '../core/check-note';
-import { CAUTION, EXIT, HELP, jobsOption, parse, UsageError, validate, type Io } from './args';
+import { CAUTION, EXIT, HELP, jobsOption, parse, UsageError, validate, wholeNumberOption, type Io } from './args';
+import { ConfigReport, reportConfigProblems } from './config-report';
 import { renderCheckDocs } from '../core/checks/docs';
 import { replaceBetween, withGeneratedTables } from '../core/fields/docs';
 import { COLUMNS_END, COLUMNS_START, renderColumnTable } from '../core/export/docs';
@@ -21,6 +23,7 @@ import { gather, type BatchDone, type WorkDone, type WorkItem } from './pool';
 import { CheckJsonWriter, jsonFileEntryOrProblem, writeCheckSarif, writeCheckText, type FileOutcome } from './render-check';
 import { renderShow } from './render-show';
 import { Output } from './output';
+import { visible } from './visible';
 import { NoteWorker, packReport, written, type FileReport, type Task } from './work';
 
 export async function run(argv: readonly string[], io: Io): Promise<number> {
@@ -59,19 +62,20 @@ function show(args: readonly string[], io: Io): number {
   if (positionals.length !== 1) throw new UsageError('show takes exactly one file (use `check` for several)');
   const note = readNote(positionals[0]!, io.cwd, io.stdin);
   if (note.text === null) {
-    io.stderr.write(`pneumark: ${note.path}: ${note.problem}\n`);
+    io.stderr.write(`pneumark: ${visible(note.path)}: ${note.problem}\n`);
     return EXIT.usage;
   }
   const worker = new NoteWorker(io.cwd, {});
   const result = checkNote(note.text, worker.settingsFor(positionals[0]!));
   io.stdout.write(`${renderShow(note.path, result, paint(colourWanted(io.stdout, io.env)))}\n\n${CAUTION}\n`);
+  if (reportConfigProblems(new ConfigReport(io.cwd).note(positionals[0]!), io)) return EXIT.usage;
   return result.findings.some((f) => f.severity === 'error') ? EXIT.findings : EXIT.ok;
 }
 
 const checkOptions = z.object({
   format: z.enum(['text', 'json', 'sarif']).default('text'),
   quiet: z.boolean().default(false),
-  maxWarnings: z.coerce.number().int().min(0).optional(),
+  maxWarnings: wholeNumberOption(0, 1_000_000_000, 'expected a whole number, 0 or more').optional(),
   exclude: z.array(z.string().min(1).max(500)).max(100).default([]),
   jobs: jobsOption,
   progress: z.boolean().default(true),
@@ -80,21 +84,22 @@ const checkOptions = z.object({
 async function check(args: readonly string[], io: Io): Promise<number> {
   const { positionals, values } = parse(args, { format: { type: 'string' }, quiet: { type: 'boolean' }, 'max-warnings': { type: 'string' }, exclude: { type: 'string', multiple: true }, jobs: { type: 'string' }, 'no-progress': { type: 'boolean' } });
   if (values.help) { io.stdout.write(`${HELP.check}\n`); return EXIT.ok; }
-  const opts = validate(checkOptions, { format: values.format, quiet: values.quiet, maxWarnings: values['max-warnings'], exclude: values.exclude, jobs: values.jobs, progress: !values['no-progress'] });
+  const opts = validate(checkOptions, { format: values.format, quiet: values.quiet, maxWarnings: values['max-warnings'], exclude: values.exclude, jobs: values.jobs, progress: !values['no-progress'] }, { progress: '--no-progress' });
   if (positionals.length === 0) throw new UsageError('check needs at least one file, folder, pattern or - (stdin)');
   const { files, problems } = listInputs(positionals, io.cwd, opts.exclude);
+  const configs = new ConfigReport(io.cwd).notes(files);
   const worker = new NoteWorker(io.cwd, {});
   const unread: FileOutcome[] = problems.map((p) => ({ path: p.path, findings: [], problem: p.problem }));
   // JSON (with every timepoint) is written a note at a time as the notes come in, in their order,
   // and each note's timepoints are let go once written.
   const output = new Output(io.stdout);
-  const json = opts.format === 'json' ? new CheckJsonWriter(output) : null;
+  const json = opts.format === 'json' ? new CheckJsonWriter(output, opts.quiet) : null;
   if (json) for (const o of unread) json.file(o);
   const streaming = json ? {
     inOrder: (r: FileReport): FileReport => written(r, json.file(r)),
     ready: () => output.ready(),
   } : undefined;
-  const reports = await gather(files, { kind: 'check', timepoints: json !== null }, io, worker, opts.progress && !(json && io.stdout.isTTY), 'checking', opts.jobs, streaming);
+  const reports = await gather(files, { kind: 'check', timepoints: json !== null, errorsOnly: opts.quiet }, io, worker, opts.progress && !(json && io.stdout.isTTY), 'checking', opts.jobs, streaming);
   const outcomes: FileOutcome[] = [...unread, ...reports];
   const p: Paint = paint(colourWanted(io.stdout, io.env));
   if (json) {
@@ -106,8 +111,9 @@ async function check(args: readonly string[], io: Io): Promise<number> {
   } else {
     await writeCheckText(outcomes, p, opts.quiet, output);
   }
-  for (const o of outcomes) if (o.problem) io.stderr.write(`pneumark: ${o.path}: ${o.problem}\n`);
-  if (outcomes.some((o) => o.problem)) return EXIT.usage;
+  const badConfig = reportConfigProblems(configs, io);
+  for (const o of outcomes) if (o.problem) io.stderr.write(`pneumark: ${visible(o.path)}: ${o.problem}\n`);
+  if (badConfig || outcomes.some((o) => o.problem)) return EXIT.usage;
   if (outcomes.some((o) => o.findings.some((f) => f.severity === 'error'))) return EXIT.findings;
   const warnings = outcomes.reduce((n, o) => n + o.findings.filter((f) => f.severity === 'warning').length, 0);
   if (opts.maxWarnings !== undefined && warnings > opts.maxWarnings) {
@@ -117,15 +123,55 @@ async function check(args: readonly string[], io: Io): Promise<number> {
   return EXIT.ok;
 }
 
+const docsOptions = z.object({
+  write: z.string().min(1).optional(),
+  grammar: z.string().min(1).optional(),
+  readme: z.string().min(1).optional(),
+});
+
 function docs(args: readonly string[], io: Io): number {
-  const { values } = parse(args, { write: { type: 'string' }, grammar: { type: 'string' }, readme: { type: 'string' } });
+  const { positionals, values } = parse(args, { write: { type: 'string' }, grammar: { type: 'string' }, readme: { type: 'string' } });
   if (values.help) { io.stdout.write(`${HELP.docs}\n`); return EXIT.ok; }
+  if (positionals.length > 0) throw new UsageError(`docs takes no arguments (got ${positionals.map((a) => JSON.stringify(a)).join(', ')}); to write to a file use --write FILE`);
+  const opts = validate(docsOptions, { write: values.write, grammar: values.grammar, readme: values.readme });
+  const at = (path: string) => resolve(io.cwd, path);
+  // Files to update are read first, so a path that cannot be read leaves every file as it was.
+  const grammar = opts.grammar === undefined ? null : { path: opts.grammar, text: withGeneratedTables(readText(at(opts.grammar), opts.grammar, '--grammar')) };
+  const readme = opts.readme === undefined ? null : { path: opts.readme, text: replaceBetween(readText(at(opts.readme), opts.readme, '--readme'), COLUMNS_START, COLUMNS_END, renderColumnTable()) };
   const text = renderCheckDocs();
-  if (typeof values.write === 'string') writeFileSync(values.write, text);
+  if (opts.write !== undefined) writeText(at(opts.write), opts.write, text, '--write');
   else io.stdout.write(text);
-  if (typeof values.grammar === 'string') writeFileSync(values.grammar, withGeneratedTables(readFileSync(values.grammar, 'utf8')));
-  if (typeof values.readme === 'string') writeFileSync(values.readme, replaceBetween(readFileSync(values.readme, 'utf8'), COLUMNS_START, COLUMNS_END, renderColumnTable()));
+  if (grammar) writeText(at(grammar.path), grammar.path, grammar.text, '--grammar');
+  if (readme) writeText(at(readme.path), readme.path, readme.text, '--readme');
   return EXIT.ok;
+}
+
+/** A file-system error in a few words: `no such file or folder`, `permission denied`, ... */
+function fileProblem(error: unknown): string {
+  const code = (error as NodeJS.ErrnoException | null)?.code;
+  if (code === 'ENOENT') return 'no such file or folder';
+  if (code === 'EACCES' || code === 'EPERM') return 'permission denied';
+  if (code === 'EISDIR') return 'is a folder';
+  if (code === 'ENOTDIR') return 'a part of the path is not a folder';
+  return `${code ?? (error instanceof Error ? error.message : String(error))}`;
+}
+
+/** A file `docs` updates, read whole; a usage error (one line) when it cannot be. */
+function readText(path: string, shown: string, option: string): string {
+  try {
+    return readFileSync(path, 'utf8');
+  } catch (error) {
+    throw new UsageError(`${option} ${visible(JSON.stringify(shown))}: cannot be read (${fileProblem(error)})`);
+  }
+}
+
+/** A file `docs` writes; a usage error (one line) when it cannot be written. */
+function writeText(path: string, shown: string, text: string, option: string): void {
+  try {
+    writeFileSync(path, text);
+  } catch (error) {
+    throw new UsageError(`${option} ${visible(JSON.stringify(shown))}: cannot be written (${fileProblem(error)})`);
+  }
 }
 
 /** Worker thread: analyses the batches of notes it is sent and posts each batch's reports back. */
@@ -136,7 +182,7 @@ function workerMain(): void {
   const withEntry = (r: FileReport): FileReport => {
     if (r.timepoints === undefined) return r;
     const { timepoints: _inEntry, ...rest } = r;
-    const { entry, problem } = jsonFileEntryOrProblem(r);
+    const { entry, problem } = jsonFileEntryOrProblem(r, data.task.kind === 'check' && data.task.errorsOnly === true);
     return { ...rest, entry, problem };
   };
   parentPort?.on('message', (batch: WorkItem[]) => {

@@ -9,6 +9,7 @@ import { PNEUMARK_VERSION } from '../core/version';
 import type { Finding } from '../core/types';
 import type { Paint } from './colour';
 import { countSeverities, type SeverityCounts } from './render-show';
+import { visible } from './visible';
 
 export interface FileOutcome {
   readonly path: string;
@@ -55,7 +56,8 @@ class Pieces {
 
 /**
  * Text output: a line per finding (`--quiet`: errors only) and a line of totals, written in pieces
- * of about a megabyte.
+ * of about a megabyte. Paths and messages (which quote the note) have their control characters
+ * made visible (see `visible`).
  */
 export async function writeCheckText(outcomes: readonly FileOutcome[], p: Paint, quiet: boolean, out: Sink): Promise<void> {
   const total: SeverityCounts = { error: 0, warning: 0, information: 0, hint: 0 };
@@ -63,13 +65,14 @@ export async function writeCheckText(outcomes: readonly FileOutcome[], p: Paint,
   for (const o of outcomes) {
     let lines = '';
     if (o.problem) {
-      lines = `${o.path}: ${p.red('cannot check')}: ${o.problem}\n`;
+      lines = `${visible(o.path)}: ${p.red('cannot check')}: ${visible(o.problem)}\n`;
     } else {
       countSeverities(o.findings, total);
+      const path = visible(o.path);
       for (const f of o.findings) {
         if (quiet && f.severity !== 'error') continue;
         const sev = f.severity === 'error' ? p.red('error') : f.severity === 'warning' ? p.yellow('warning') : p.blue(f.severity === 'information' ? 'info' : 'hint');
-        lines += `${o.path}:${f.range.start.line + 1}:${f.range.start.character + 1}  ${sev}  ${p.dim(`${f.code} ${aliasOf.get(f.code) ?? ''}`)}  ${f.message}\n`;
+        lines += `${path}:${f.range.start.line + 1}:${f.range.start.character + 1}  ${sev}  ${p.dim(`${f.code} ${aliasOf.get(f.code) ?? ''}`)}  ${visible(f.message)}\n`;
       }
     }
     const full = pieces.add(lines);
@@ -115,21 +118,22 @@ export function toJsonFinding(f: Finding): JsonFinding {
 /**
  * Writes the JSON output a note at a time (a folder of notes with their timepoints makes gigabytes
  * of JSON: more than one string can hold): `file` for each note in order, then `end`. The bytes are
- * those of `JSON.stringify` of the whole object with two-space indentation.
+ * those of `JSON.stringify` of the whole object with two-space indentation. With `errorsOnly`
+ * (`--quiet`) each note lists its error findings only; the summary still counts every finding.
  */
 export class CheckJsonWriter {
   private readonly total: SeverityCounts = { error: 0, warning: 0, information: 0, hint: 0 };
   private files = 0;
   private unreadable = 0;
 
-  constructor(private readonly out: { write(s: string): unknown }) {
+  constructor(private readonly out: { write(s: string): unknown }, private readonly errorsOnly = false) {
     out.write('{\n  "pneumark": 1,\n  "files": [');
   }
 
   /** Writes a note's entry; returns the note's problem (see `jsonFileEntryOrProblem`). */
   file(o: FileOutcome): string | null {
     countSeverities(o.findings, this.total);
-    const { entry, problem } = o.entry !== undefined ? { entry: o.entry, problem: o.problem } : jsonFileEntryOrProblem(o);
+    const { entry, problem } = o.entry !== undefined ? { entry: o.entry, problem: o.problem } : jsonFileEntryOrProblem(o, this.errorsOnly);
     if (problem) this.unreadable++;
     this.out.write(`${this.files++ === 0 ? '' : ','}\n    ${entry}`);
     return problem;
@@ -144,14 +148,15 @@ export class CheckJsonWriter {
 }
 
 /**
- * One note's entry in the JSON output, as nested there. A worker writes it out itself: a string
- * crosses to the main thread in one copy, where the timepoints as objects would be cloned one by one.
+ * One note's entry in the JSON output, as nested there (`errorsOnly`: with its error findings
+ * only). A worker writes it out itself: a string crosses to the main thread in one copy, where the
+ * timepoints as objects would be cloned one by one.
  */
-export function jsonFileEntry(o: FileOutcome): string {
+export function jsonFileEntry(o: FileOutcome, errorsOnly = false): string {
   const file = {
     path: o.path,
     problem: o.problem,
-    findings: o.findings.map(toJsonFinding),
+    findings: (errorsOnly ? o.findings.filter((f) => f.severity === 'error') : o.findings).map(toJsonFinding),
     ...(o.timepoints ? { timepoints: o.timepoints } : {}),
   };
   return nested(file, '    ');
@@ -165,12 +170,12 @@ export const TOO_MUCH_JSON = 'its timepoints make more JSON than one string can 
  * megabytes: a note of tens of thousands of timepoints), its entry without them and with a problem
  * that says so, so the run goes on and ends with exit code 2.
  */
-export function jsonFileEntryOrProblem(o: FileOutcome): { readonly entry: string; readonly problem: string | null } {
+export function jsonFileEntryOrProblem(o: FileOutcome, errorsOnly = false): { readonly entry: string; readonly problem: string | null } {
   try {
-    return { entry: jsonFileEntry(o), problem: o.problem };
+    return { entry: jsonFileEntry(o, errorsOnly), problem: o.problem };
   } catch (error) {
     if (!(error instanceof RangeError)) throw error;
-    return { entry: jsonFileEntry({ path: o.path, findings: o.findings, problem: TOO_MUCH_JSON }), problem: TOO_MUCH_JSON };
+    return { entry: jsonFileEntry({ path: o.path, findings: o.findings, problem: TOO_MUCH_JSON }, errorsOnly), problem: TOO_MUCH_JSON };
   }
 }
 

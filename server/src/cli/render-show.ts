@@ -1,17 +1,24 @@
 /**
  * `pneumark show`: the note as the core understood it — each timepoint, its lines with
  * normalised values and units, values carried in from earlier timepoints, and findings
- * under the line they belong to.
+ * under the line they belong to. Text from the note (the path, labels, prose, words, origins
+ * and messages that quote the note) has its control characters made visible (see `visible`), so
+ * that the only escape sequences written are the colours of `Paint`.
  */
 import type { NoteResult } from '../core/check-note';
 import type { StatedValue, Timepoint } from '../core/analysis/model';
 import { shortOf, formatAlternative, formatStated, describeOrigin } from '../core/present';
+import { fieldById } from '../core/fields/registry';
+import { convert, unitById } from '../core/fields/units';
+import { displayUnit } from '../core/analysis/read-value';
+import { formatNumber } from '../core/util/format';
 import type { LineNode } from '../core/syntax/tree';
 import type { TimepointDerivation } from '../core/derive/model';
 import type { Finding } from '../core/types';
 import { CHECKS } from '../core/checks/registry';
 import type { Paint } from './colour';
 import { renderDerived } from './render-derived';
+import { visible } from './visible';
 
 const READING_CODES = new Set(CHECKS.filter((c) => c.tags.includes('interpretation')).map((c) => c.code));
 
@@ -27,7 +34,7 @@ export function renderShow(path: string, result: NoteResult, p: Paint): string {
     else byLine.set(f.range.start.line, [f]);
   }
   const counts = countSeverities(findings);
-  out.push(`${p.bold(path)}  ${p.dim(`${analysis.timeline.timepoints.length} timepoint${analysis.timeline.timepoints.length === 1 ? '' : 's'}`)}  ${summary(counts, p)}`);
+  out.push(`${p.bold(visible(path))}  ${p.dim(`${analysis.timeline.timepoints.length} timepoint${analysis.timeline.timepoints.length === 1 ? '' : 's'}`)}  ${summary(counts, p)}`);
 
   const statedByLine = new Map<number, StatedValue[]>();
   for (const s of [...analysis.timeline.header, ...analysis.timeline.timepoints.flatMap((t) => t.stated)]) {
@@ -45,7 +52,7 @@ export function renderShow(path: string, result: NoteResult, p: Paint): string {
     const tp = tpByStart.get(node.line);
     if (tp && tp.line === null) out.push('', p.bold(p.cyan('@ (start)')));
     if (node.kind === 'timepoint') {
-      out.push('', `${p.bold(p.cyan(`@ ${node.time?.text ?? '?'}`))}${node.label ? `  ${node.label.text}` : ''}  ${p.dim(`line ${node.line + 1}`)}`);
+      out.push('', `${p.bold(p.cyan(`@ ${visible(node.time?.text ?? '?')}`))}${node.label ? `  ${visible(node.label.text)}` : ''}  ${p.dim(`line ${node.line + 1}`)}`);
     } else if (node.kind === 'section') {
       if (!printedHeader && analysis.timeline.timepoints.every((t) => t.startLine > node.line)) {
         out.push('', p.bold('header'));
@@ -53,7 +60,7 @@ export function renderShow(path: string, result: NoteResult, p: Paint): string {
       }
       out.push(renderSectionLine(node, statedByLine.get(node.line) ?? [], p));
     } else if (node.kind === 'unknown') {
-      out.push(`  ${p.red('?')} ${node.text.trim()}`);
+      out.push(`  ${p.red('?')} ${visible(node.text.trim())}`);
     }
     for (const f of byLine.get(node.line) ?? []) out.push(renderFinding(f, p));
     const ending = tpByEnd.get(node.line);
@@ -63,15 +70,35 @@ export function renderShow(path: string, result: NoteResult, p: Paint): string {
 }
 
 function renderSectionLine(node: Extract<LineNode, { kind: 'section' }>, stated: readonly StatedValue[], p: Paint): string {
-  const head = `  ${p.blue(node.section.padEnd(8))}`;
-  if (node.section === 'note') return `${head} ${p.dim(node.prose?.text ?? '')}`;
+  const head = `  ${p.blue(visible(node.section).padEnd(8))}`;
+  if (node.section === 'note') return `${head} ${p.dim(visible(node.prose?.text ?? ''))}`;
   const parts = stated.map((s) => {
-    const alt = formatAlternative(s);
+    // A bare number whose unit is in doubt is shown as written, with what it would be if it was
+    // written in the likely unit (never a conversion from the unit it is doubted in).
+    const alt = s.unitDoubt ? ifLikelyUnit(s) : s.unit !== 'fraction' ? formatAlternative(s) : null;
     const value = s.unitDoubt ? `${s.item.value?.text ?? ''} ?` : formatStated(s);
     const flag = s.usable ? '' : p.yellow(' (not used)');
-    return `${shortOf(s.fieldId)} ${p.bold(value)}${alt && s.unit !== 'fraction' ? p.dim(` (${alt})`) : ''}${flag}`;
+    return `${shortOf(s.fieldId)} ${p.bold(visible(value))}${alt ? p.dim(` (${visible(alt)})`) : ''}${flag}`;
   });
   return `${head} ${parts.join(p.dim(' · '))}`;
+}
+
+/**
+ * For a bare number read in one unit where another is likely (PN204): the number taken in the
+ * likely unit, in the unit the note reads bare numbers in, as PN204's conversion fix writes it —
+ * `if kPa: 40 mmHg` for a PaCO2 of 5.3 read in mmHg. Null when there is no such number.
+ */
+export function ifLikelyUnit(s: StatedValue): string | null {
+  const field = fieldById(s.fieldId);
+  const likely = unitById(s.unitDoubt ?? '');
+  const read = unitById(s.readUnit ?? '');
+  const written = s.item.number;
+  if (!field || !likely || !read || written === null) return null;
+  const inRead = convert(written, likely, read);
+  if (inRead === null) return null;
+  const decimals = read.id === field.unit ? field.decimals : Math.max(field.decimals, 1);
+  const unit = read.id === 'fraction' || read.id === 'ph' ? '' : ` ${displayUnit(read.id)}`;
+  return `if ${displayUnit(likely.id)}: ${formatNumber(inRead, decimals)}${unit}`;
 }
 
 function renderTimepointFooter(tp: Timepoint, derivation: TimepointDerivation | undefined, p: Paint): string[] {
@@ -79,9 +106,9 @@ function renderTimepointFooter(tp: Timepoint, derivation: TimepointDerivation | 
   const lines: string[] = [];
   const groups = new Map<string, string[]>();
   for (const v of carried) {
-    const from = describeOrigin(v.origin);
+    const from = visible(describeOrigin(v.origin));
     const list = groups.get(from) ?? [];
-    list.push(`${shortOf(v.stated.fieldId)} ${formatStated(v.stated)}`);
+    list.push(`${shortOf(v.stated.fieldId)} ${visible(formatStated(v.stated))}`);
     groups.set(from, list);
   }
   for (const [from, values] of groups) lines.push(`  ${p.magenta('carried'.padEnd(8))} ${values.join(p.dim(' · '))} ${p.dim(`(${from})`)}`);
@@ -91,7 +118,7 @@ function renderTimepointFooter(tp: Timepoint, derivation: TimepointDerivation | 
 
 export function renderFinding(f: Finding, p: Paint): string {
   const mark = f.severity === 'error' ? p.red('✖ error') : f.severity === 'warning' ? p.yellow('▲ warning') : p.blue('● info');
-  return `      ${mark} ${p.dim(f.code)} ${f.message} ${p.dim(`(${f.range.start.line + 1}:${f.range.start.character + 1})`)}`;
+  return `      ${mark} ${p.dim(f.code)} ${visible(f.message)} ${p.dim(`(${f.range.start.line + 1}:${f.range.start.character + 1})`)}`;
 }
 
 export interface SeverityCounts {

@@ -12,7 +12,7 @@ import { readNote, type NoteInput } from './inputs';
 import { timepointsJson } from './timepoints-json';
 
 export type Task =
-  | { readonly kind: 'check'; readonly timepoints: boolean }
+  | { readonly kind: 'check'; readonly timepoints: boolean; /** `--quiet`: the JSON entries list error findings only. */ readonly errorsOnly?: boolean }
   | { readonly kind: 'export'; readonly format: 'csv' | 'jsonl' | 'fhir'; readonly redactProse: boolean; readonly shiftDays: number; readonly anchor: string | null };
 
 export interface FileReport {
@@ -38,8 +38,13 @@ export class NoteWorker {
     private readonly exportRenderer: ExportRenderer | null = null,
   ) {}
 
+  /**
+   * The settings of the project file found upward from the note's folder; for standard input,
+   * upward from the working folder (so `cat note | pneumark check -` reads the note as
+   * `pneumark check note` would there).
+   */
   settingsFor(path: string): Partial<Settings> {
-    if (path === '-' || path === '<stdin>') return this.overrides;
+    // `-` (standard input) stands for a note in the working folder.
     const found = this.configs.forPath(isAbsolute(path) ? path : join(this.cwd, path));
     return { ...(found?.config.settings ?? {}), ...this.overrides };
   }
