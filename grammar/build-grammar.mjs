@@ -178,20 +178,42 @@ const leadGap = cap({ patterns: [{ include: '#item-separator' }] }, '[\\s,]+');
 const pair = (scope) => ({ name: sc(scope), patterns: [{ include: '#pair-parts' }] });
 const shorthand = { name: sc('meta.shorthand-gas'), patterns: [{ include: '#shorthand-parts' }] };
 
-/** `min` to `max` numbers joined by slashes (optional parts nest, so no group repeats a quantifier). */
-function slashGroup(min, max) {
+/**
+ * `min` to `max` numbers joined by slashes (optional parts nest, so no group repeats a
+ * quantifier). `sep` is `/` within one chunk, or a slash with blanks around it (`120 / 80`),
+ * which the parser reads for a pair's key and for a shorthand gas.
+ */
+function slashGroup(min, max, sep = '/') {
   let optional = '';
-  for (let i = max; i > min; i--) optional = `(?:/${NUM}${optional})?`;
-  return Array.from({ length: min }, () => NUM).join('/') + optional;
+  for (let i = max; i > min; i--) optional = `(?:${sep}${NUM}${optional})?`;
+  return Array.from({ length: min }, () => NUM).join(sep) + optional;
 }
+const SPACED = '\\s+/\\s+';
 const SHORTHAND = slashGroup(2, 4);
+const SHORTHAND_SPACED = slashGroup(2, 4, SPACED);
 const PAIR = slashGroup(2, 2);
+const PAIR_SPACED = slashGroup(2, 2, SPACED);
 /** A slash group the parser reads as a pair but no field uses: 3 or more numbers. */
 const LONG_PAIR = slashGroup(3, 12);
+const LONG_PAIR_SPACED = slashGroup(3, 12, SPACED);
+
+/**
+ * What may follow a slash group: a unit glued to its last number (`120/80mmHg`; it starts with a
+ * letter, `%` or `°` and holds no slash, as the parser reads it), or the end of the chunk and a
+ * unit after blanks.
+ */
+function groupTail(units, keys) {
+  return [
+    '(?:', cap('keyword.other.unit', units), END,
+    '|', cap('keyword.other.unit.unknown', '[A-Za-z%°][^\\s,#/]*'), END,
+    '|', END, '(?:', spacedUnit(units, keys), ')?',
+    ')',
+  ];
+}
 
 /** The lead of an abg or vbg line: a shorthand gas and the unit of its pressures. */
 function shorthandLead(units, keys) {
-  return ['(?:', leadGap, cap(shorthand, SHORTHAND), END, '(?:', spacedUnit(units, keys), ')?)?'];
+  return ['(?:', leadGap, '(?:', cap(shorthand, SHORTHAND), groupTail(units, keys), '|', cap(shorthand, SHORTHAND_SPACED), groupTail(units, keys), '))?'];
 }
 
 /** Values written where no key comes before them (the parser reports them), or a misplaced shorthand. */
@@ -219,13 +241,25 @@ function keyValueRule(units, keys) {
     START,
     '(?:', cap('variable.other.key', keys), END, '|', `(?!${NUM_START})`, cap('variable.other.key.unknown', `[^\\s,#]${CHUNK_REST}`), ')',
     '(?:\\s+(?:',
-    cap(pair('meta.pair'), PAIR), END, '(?:', spacedUnit(units, keys), ')?',
-    '|', cap('invalid.illegal.pair', LONG_PAIR), END, '(?:', spacedUnit(units, keys), ')?',
+    cap(pair('meta.pair'), PAIR), groupTail(units, keys),
+    '|', cap('invalid.illegal.pair', LONG_PAIR), groupTail(units, keys),
     '|', cap('invalid.illegal.pair', UNREADABLE),
     '|', numberWithUnit(units, keys),
     '))?',
   );
   return { comment: 'An item: a key, then its value: a number, or two numbers joined by a slash (bp 96/58), then a unit.', match: rule.regex, captures: rule.captures };
+}
+
+/** A key that takes a pair, with the pair written with blanks around its slash (`bp 120 / 80`). */
+function spacedPairRule(pairKeys, units, keys) {
+  const rule = assemble(
+    START, cap('variable.other.key', pairKeys), END,
+    '\\s+(?:',
+    cap(pair('meta.pair'), PAIR_SPACED), groupTail(units, keys),
+    '|', cap('invalid.illegal.pair', LONG_PAIR_SPACED), groupTail(units, keys),
+    ')',
+  );
+  return { comment: 'A pair written with blanks around its slash (bp 120 / 80).', match: rule.regex, captures: rule.captures };
 }
 
 /** A key that takes a word (`sex female`, `mode VC`, `gas kPa`, `device cannula`). */
@@ -249,11 +283,13 @@ function itemPatterns({ FIELDS }, sectionId, units) {
   const keys = alt(keysOf(FIELDS, sectionId));
   const gas = sectionId === 'abg' || sectionId === 'vbg';
   const wordFields = FIELDS.filter((f) => f.kind === 'word' && sectionId !== null && f.sections.includes(sectionId));
+  const pairKeys = [...new Set(FIELDS.filter((f) => f.kind === 'pair' && sectionId !== null && f.sections.includes(sectionId)).flatMap((f) => f.aliases))];
   return [
     { include: '#comment' },
     { include: '#item-separator' },
     ...strayRules(gas, units),
     ...wordFields.map((f) => wordItemRule(f, keys)),
+    ...(pairKeys.length > 0 ? [spacedPairRule(alt(pairKeys), units, keys)] : []),
     keyValueRule(units, keys),
   ];
 }

@@ -78,6 +78,35 @@ describe('section lines', () => {
     expect(node.items.map((i) => summary(text, i))).toEqual(['hr | 118 | <none>', 'rr | 26 | <none>', 'spo2 | 89 | %', 'temp | 38.4 | C']);
   });
 
+  it('reads a unit glued to a pair or a shorthand gas (`120/80mmHg`, `7.28/56/71/26mmHg`), as the grammar allows', () => {
+    const vitals = 'vitals bp 120/80mmHg, hr 80';
+    const v = section(vitals);
+    expect(v.items.map((i) => summary(vitals, i))).toEqual(['bp | 120/80 | mmHg', 'hr | 80 | <none>']);
+    expect(v.issues).toEqual([]);
+    const gas = 'abg 7.28/7.5/9.5/26kPa';
+    const g = section(gas);
+    expect(g.items.map((i) => summary(gas, i))).toEqual(['ph | 7.28 | <none>', 'pco2 | 7.5 | kPa', 'po2 | 9.5 | kPa', 'hco3 | 26 | <none>']);
+    expect(g.issues).toEqual([]);
+    // Only after the last number, and only a unit-like word: `120mmHg/80` is no pair.
+    expect(section('vitals bp 120mmHg/80').items[0]?.valueKind).toBe('number');
+  });
+
+  it('reads a pair or a shorthand gas written with blanks around its slashes (`120 / 80`, `7.28 / 56 / 71 / 26`)', () => {
+    const vitals = 'vitals bp 120 / 80 mmHg, hr 80';
+    const v = section(vitals);
+    expect(v.items.map((i) => summary(vitals, i))).toEqual(['bp | 120 / 80 | mmHg', 'hr | 80 | <none>']);
+    expect(v.issues).toEqual([]);
+    const value = v.items[0]!.value;
+    expect(value?.kind === 'pair' ? value.parts.map((p) => p.value) : null).toEqual([120, 80]);
+    const gas = 'abg 7.28 / 56 / 71 / 26, be -2';
+    const g = section(gas);
+    expect(g.items.map((i) => summary(gas, i))).toEqual(['ph | 7.28 | <none>', 'pco2 | 56 | <none>', 'po2 | 71 | <none>', 'hco3 | 26 | <none>', 'be | -2 | <none>']);
+    expect(g.issues).toEqual([]);
+    // A lone slash after a number that is not a pair's: still not a key of its own.
+    const hr = 'vitals hr 80 / 90';
+    expect(section(hr).items.map((i) => i.keyName)).not.toContain('/');
+  });
+
   it('gives a section word at the start of a line one token shared by such lines, with its span', () => {
     const a = section('vitals hr 80');
     const b = section('vitals rr 16');

@@ -8,7 +8,7 @@ import type { SectionId } from '../fields/sections';
 import { convert, unitById, unitsForSpelling, type UnitDef } from '../fields/units';
 import type { ItemNode, LineFix, PairValue } from '../syntax/tree';
 import { formatNumber } from '../util/format';
-import { closest } from '../util/suggest';
+import { closest, editDistance } from '../util/suggest';
 import { softBoundsAt, within, type BoundsContext } from './bounds';
 import type { StatedValue } from './model';
 import type { ReadIssue } from './read-issues';
@@ -223,8 +223,22 @@ function unknownKeyIssue(item: ItemNode, section: SectionId, line: number): Read
     line,
     span: key.span,
     message: `\`${key.text}\` is not a key of ${section} lines${where}.${hint}`,
-    fixes: near.map((k, i) => ({ title: `Change to \`${k}\``, edits: [{ span: key.span, newText: k }], preferred: i === 0 && near.length === 1 })),
+    fixes: near.map((k) => ({ title: `Change to \`${k}\``, edits: [{ span: key.span, newText: k }], preferred: near.length === 1 && safeKeyFix(key.text.toLowerCase(), k.toLowerCase()) })),
   };
+}
+
+/**
+ * Whether changing key `written` to `known` is safe for "fix all": one letter away from a key of 4
+ * letters or more, or a doubled letter (`rrr` → `rr`). A 1–3 letter key is one letter from many
+ * keys (`p` → `k`, `x` → `t`), and changing it would state a value the writer never meant.
+ */
+function safeKeyFix(written: string, known: string): boolean {
+  if (editDistance(written, known) !== 1) return false;
+  if (written.length >= 4) return true;
+  for (let i = 1; i < written.length; i++) {
+    if (written[i] === written[i - 1] && written.slice(0, i) + written.slice(i + 1) === known) return true;
+  }
+  return false;
 }
 
 function unknownUnitIssue(item: ItemNode, field: FieldDef, line: number): ReadIssue {

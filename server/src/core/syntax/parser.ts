@@ -383,7 +383,18 @@ function gluedUnit(chunk: Word, length: number): Located | null {
   return length === chunk.text.length ? null : token(chunk.text.slice(length), chunk.start + length, chunk.end);
 }
 
+/**
+ * Where the unit glued to the last slash group read begins in its chunk (`120/80mmHg` → 6), or
+ * -1 when none is. One variable, read right after `readSlashGroup`, rather than an object per group.
+ */
+let GROUP_UNIT_AT = -1;
+
+/**
+ * Numbers joined by single slashes in one chunk (`120/80`, `7.28/56/71/26`), or null. The last
+ * number may carry a glued unit (`120/80mmHg`), whose position is left in GROUP_UNIT_AT.
+ */
 function readSlashGroup(chunk: Word, source: string): PairNode | null {
+  GROUP_UNIT_AT = -1;
   const text = chunk.text;
   let slash = text.indexOf('/');
   if (slash < 0) return null;
@@ -393,19 +404,79 @@ function readSlashGroup(chunk: Word, source: string): PairNode | null {
   // its exact length.
   const packed = new Array<number>(4 * count);
   let from = 0;
+  let groupEnd = chunk.end;
   for (let k = 0; ; k++) {
     const end = slash < 0 ? text.length : slash;
-    if (end === from || scanNumber(text, from) !== end - from) return null;
+    if (end === from) return null;
+    const length = scanNumber(text, from);
+    if (length !== end - from) {
+      // Only the last number may have a unit glued to it, and only one that starts with a letter or %.
+      if (slash >= 0 || length === 0 || !isUnitStart(text.charCodeAt(from + length))) return null;
+      GROUP_UNIT_AT = from + length;
+      groupEnd = chunk.start + from + length;
+    }
     const start = chunk.start + from;
     packed[4 * k] = SCANNED.value;
     packed[4 * k + 1] = start;
-    packed[4 * k + 2] = start + (end - from);
+    packed[4 * k + 2] = start + length;
     packed[4 * k + 3] = SCANNED.decimalComma ? 1 : 0;
     if (slash < 0) break;
     from = slash + 1;
     slash = text.indexOf('/', from);
   }
-  return new PairNode(source, chunk.start, chunk.end, packed);
+  return new PairNode(source, chunk.start, groupEnd, packed);
+}
+
+/** Whether a chunk can be a key: keys start with a letter (any script, so a misspelt key is still named). */
+function startsLikeKey(text: string): boolean {
+  const c = text.charCodeAt(0);
+  const lower = c | 0x20;
+  return (lower >= 0x61 && lower <= 0x7a) || (c > 0x7f && text[0]!.toLowerCase() !== text[0]!.toUpperCase());
+}
+
+/** A letter, `%` or `°`: how a unit glued to a number starts. */
+function isUnitStart(c: number): boolean {
+  const lower = c | 0x20;
+  return (lower >= 0x61 && lower <= 0x7a) || c === 0x25 || c === 0xb0;
+}
+
+/** The unit glued to the slash group just read from `chunk`, if any (see GROUP_UNIT_AT). */
+function groupUnit(chunk: Word): Located | null {
+  return GROUP_UNIT_AT < 0 ? null : token(chunk.text.slice(GROUP_UNIT_AT), chunk.start + GROUP_UNIT_AT, chunk.end);
+}
+
+/**
+ * Numbers joined by slashes written with blanks around them (`120 / 80`, `7.28 / 56 / 71 / 26`),
+ * from chunk `i`: the group and how many chunks it took, or null. A glued unit may follow the last
+ * number (`120 / 80mmHg`, left in GROUP_UNIT_AT as for `readSlashGroup`).
+ */
+function readSpacedGroup(chunks: readonly Word[], i: number, source: string): { group: PairNode; used: number; last: Word } | null {
+  GROUP_UNIT_AT = -1;
+  const first = chunks[i];
+  if (!first || first.text.indexOf('/') >= 0 || scanNumber(first.text) !== first.text.length) return null;
+  const packed: number[] = [SCANNED.value, first.start, first.end, SCANNED.decimalComma ? 1 : 0];
+  let k = i + 1;
+  let last = first;
+  let end = first.end;
+  while (k + 1 < chunks.length) {
+    const slash = chunks[k]!;
+    const next = chunks[k + 1]!;
+    if (slash.text !== '/' || slash.afterComma || next.afterComma) break;
+    const length = scanNumber(next.text);
+    if (length === 0 || next.text.indexOf('/') >= 0) break;
+    const glued = length < next.text.length;
+    if (glued && !isUnitStart(next.text.charCodeAt(length))) break;
+    packed.push(SCANNED.value, next.start, next.start + length, SCANNED.decimalComma ? 1 : 0);
+    k += 2;
+    last = next;
+    end = next.start + length;
+    if (glued) {
+      GROUP_UNIT_AT = length;
+      break;
+    }
+  }
+  if (packed.length === 4) return null;
+  return { group: new PairNode(source, first.start, end, packed), used: k - i, last };
 }
 
 /**
@@ -611,14 +682,24 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
 
   // Shorthand gas: abg 7.28/56/71/26 [kPa]
   if ((section === 'abg' || section === 'vbg') && chunks[start]) {
-    const group = readSlashGroup(chunks[start], source);
+    let group = readSlashGroup(chunks[start], source);
+    let glued = group ? groupUnit(chunks[start]) : null;
+    let used = 1;
+    if (!group) {
+      const spaced = readSpacedGroup(chunks, start, source);
+      if (spaced) {
+        group = spaced.group;
+        glued = groupUnit(spaced.last);
+        used = spaced.used;
+      }
+    }
     if (group) {
-      i = start + 1;
+      i = start + used;
       if (group.count < 2 || group.count > 4) {
         issues.push({ check: 'bad-shorthand', span: { start: group.start, end: group.end }, message: `A shorthand gas has 2 to 4 numbers (pH/PCO2/PO2/HCO3); this one has ${group.count}.`, fixes: [] });
       } else {
-        const unit = unitWordAt(chunks, i, section);
-        if (unit) i++;
+        const unit = glued ?? unitWordAt(chunks, i, section);
+        if (unit && unit !== glued) i++;
         group.parts.forEach((part, k) => {
           const keyName = SHORTHAND_KEYS[k]!;
           const isPressure = keyName === 'pco2' || keyName === 'po2';
@@ -659,6 +740,12 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
       i++;
       continue;
     }
+    if (!startsLikeKey(chunk.text)) {
+      // `/`, `-`, `(80)`: punctuation is never a key (and a did-you-mean would turn it into one).
+      issues.push({ check: 'stray-text', span: chunk.span, message: `\`${chunk.text}\` is not a key; write items as \`key value\`, e.g. \`hr 118\`.`, fixes: [] });
+      i++;
+      continue;
+    }
     const key = chunk;
     const keyName = chunk.text.toLowerCase();
     const field = fieldFor(section, chunk.text) ?? null;
@@ -681,13 +768,24 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
           }
         }
       } else {
-        const group = readSlashGroup(next, source);
+        let group = readSlashGroup(next, source);
+        let glued = group ? groupUnit(next) : null;
+        let used = 1;
+        if (!group && field?.kind === 'pair') {
+          // `bp 120 / 80`: a pair written with blanks around its slash.
+          const spaced = readSpacedGroup(chunks, i, source);
+          if (spaced) {
+            group = spaced.group;
+            glued = groupUnit(spaced.last);
+            used = spaced.used;
+          }
+        }
         const length = group ? 0 : numberChunk(next);
         if (group) {
           value = group;
-          i++;
-          unit = unitWordAt(chunks, i, section);
-          if (unit) i++;
+          i += used;
+          unit = glued ?? unitWordAt(chunks, i, section);
+          if (unit && unit !== glued) i++;
         } else if (length > 0) {
           const number = SCANNED.value;
           const comma = SCANNED.decimalComma;

@@ -1,0 +1,44 @@
+// Did-you-mean fixes for unknown keys, and which of them "fix all" may apply unasked. A fix marked
+// preferred is applied with every other safe fix at once (source.fixAll, fix on save), so it must
+// never turn a key into a different field: the value would then be stated as something the writer
+// never meant (`p 1.2` read as potassium). The rule is ours (common practice of safe auto-fixes, no source).
+import { describe, expect, it } from 'vitest';
+import { checkNote } from '../../server/src/core';
+
+function keyFixes(text: string): { key: string; titles: string[]; preferred: boolean[] }[] {
+  const lines = text.split('\n');
+  return checkNote(text).findings.filter((f) => f.code === 'PN201').map((f) => ({
+    key: lines[f.range.start.line]!.slice(f.range.start.character, f.range.end.character),
+    titles: f.fixes.map((x) => x.title),
+    preferred: f.fixes.map((x) => x.preferred === true),
+  }));
+}
+
+describe('did-you-mean fixes for unknown keys', () => {
+  it('never marks a fix of a one- or two-letter key as safe: `p` is one letter from `k`, `x` from `t`', () => {
+    const fixes = keyFixes('@ 08:00\nlabs      na 140, p 1.2\nvitals    x 37\n');
+    expect(fixes.map((f) => f.key)).toEqual(['p', 'x']);
+    for (const f of fixes) expect(f.preferred.every((p) => !p)).toBe(true);
+  });
+
+  it('does not read punctuation as a key, so nothing offers to make it one (`120 / 80` is a pair)', () => {
+    const text = '@ 08:00\nvitals    bp 120 / 80, hr 80\nvitals    hr 80 / 90\n';
+    expect(keyFixes(text)).toEqual([]);
+    const stray = checkNote(text).findings.filter((f) => f.code === 'PN105');
+    expect(stray.map((f) => f.range.start.line)).toEqual([2, 2]);
+  });
+
+  it('marks safe a unique fix one letter away from a key of four letters or more, or a doubled letter', () => {
+    const fixes = keyFixes('@ 08:00\nvitals    tempp 37.2, rrr 18\n');
+    expect(fixes.map((f) => [f.key, f.titles, f.preferred])).toEqual([
+      ['tempp', ['Change to `temp`'], [true]],
+      ['rrr', ['Change to `rr`'], [true]],
+    ]);
+  });
+
+  it('offers but does not mark safe a fix of a short key one substitution away', () => {
+    const fixes = keyFixes('@ 08:00\nvitals    hx 80\n');
+    expect(fixes[0]?.titles.length).toBeGreaterThan(0);
+    expect(fixes[0]?.preferred.every((p) => !p)).toBe(true);
+  });
+});
