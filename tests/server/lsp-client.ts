@@ -37,7 +37,14 @@ export interface LspClient {
   close(): Promise<number | null>;
 }
 
-export async function startClient(settings: Record<string, unknown> = {}): Promise<LspClient> {
+export interface ClientOptions {
+  /** Whether the client answers `workspace/configuration` (default true); without it, settings are pushed. */
+  readonly pullConfiguration?: boolean;
+  /** `textDocument.completion` client capabilities (none by default). */
+  readonly completion?: Record<string, unknown>;
+}
+
+export async function startClient(settings: Record<string, unknown> = {}, options: ClientOptions = {}): Promise<LspClient> {
   const child = spawn(process.execPath, ['dist/server.js', '--stdio'], { stdio: 'pipe' });
   const connection = createProtocolConnection(new StreamMessageReader(child.stdout), new StreamMessageWriter(child.stdin));
   const published: PublishDiagnosticsParams[] = [];
@@ -78,7 +85,10 @@ export async function startClient(settings: Record<string, unknown> = {}): Promi
   const initialize = await connection.sendRequest<InitializeResult>('initialize', {
     processId: process.pid,
     rootUri: null,
-    capabilities: { workspace: { configuration: true, didChangeConfiguration: { dynamicRegistration: true } }, textDocument: { inlayHint: { resolveSupport: { properties: ['tooltip'] } }, publishDiagnostics: { versionSupport: true } } },
+    capabilities: {
+      workspace: { configuration: options.pullConfiguration ?? true, didChangeConfiguration: { dynamicRegistration: options.pullConfiguration ?? true } },
+      textDocument: { inlayHint: { resolveSupport: { properties: ['tooltip'] } }, publishDiagnostics: { versionSupport: true }, ...(options.completion ? { completion: options.completion } : {}) },
+    },
   });
   await connection.sendNotification('initialized', {});
   return Object.assign(client, {

@@ -159,6 +159,13 @@ describe('convertNoteUnits', () => {
     expect(applyEdits(text, convertNoteUnits(checkNote(text), 'kPa'))).toBe(note('units     gas kPa', '@ 08:00', 'abg po2 9.1 mmHg'));
   });
 
+  it('starts an empty (or blank) note with the units line, not with a blank line', () => {
+    expect(applyEdits('', convertNoteUnits(checkNote(''), 'kPa'))).toBe('units     gas kPa\n');
+    expect(applyEdits('\n\n', convertNoteUnits(checkNote('\n\n'), 'kPa'))).toBe('units     gas kPa\n\n\n');
+    expect(applyEdits('\uFEFF', convertNoteUnits(checkNote('\uFEFF'), 'kPa'))).toBe('\uFEFFunits     gas kPa\n');
+    expect(applyEdits('patient age 60 y', convertNoteUnits(checkNote('patient age 60 y'), 'kPa'))).toBe('patient age 60 y\nunits     gas kPa');
+  });
+
   it('uses the note\'s line ending for the added line', () => {
     const text = '@ 08:00\r\nabg po2 71\r\n';
     expect(applyEdits(text, convertNoteUnits(checkNote(text), 'kPa'))).toBe('units     gas kPa\r\n@ 08:00\r\nabg po2 9.5\r\n');

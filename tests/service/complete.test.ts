@@ -27,10 +27,33 @@ describe('at the start of a line', () => {
     const snippets = complete('|').filter((c) => c.kind === 'snippet');
     expect(snippets.every((c) => c.isSnippet)).toBe(true);
     const texts = snippets.map((c) => c.insertText);
-    expect(texts).toContain('@ day ${1:1} ${2:08:00}  ${3:label}');
-    expect(texts).toContain('@ +${1:1h}');
-    expect(texts.some((t) => t.startsWith('abg       ${1:7.40}/${2:40}/${3:90}/${4:24}'))).toBe(true);
-    expect(texts.some((t) => t.startsWith('vent      mode ${1:VC}'))).toBe(true);
+    expect(texts).toContain('@ day ${1:N} ${2:HH:MM}  ${3:label}');
+    expect(texts).toContain('@ +${1:interval}');
+    expect(texts).toContain('abg       ${1:pH}/${2:PaCO2}/${3:PaO2}/${4:HCO3}');
+    expect(texts.some((t) => t.startsWith('vent      mode ${1|VC,PC,PRVC,PS,SIMV,APRV,CPAP,HFOV|}, vt ${2:VT} mL'))).toBe(true);
+  });
+
+  it('fills every snippet with words, so that a snippet left unfilled is reported on its line', () => {
+    // Each snippet as it reads when every stop is left as it is (a choice keeps its first word).
+    const unfilled = (snippet: string) => snippet
+      .replace(/\$\{\d+\|([^,|}]*)[^}]*\}/g, '$1')
+      .replace(/\$\{\d+:([^}]*)\}/g, '$1')
+      .replace(/\$\d+/g, '');
+    const snippets = (marked: string) => complete(marked).filter((c) => c.kind === 'snippet');
+    const lines = [
+      ...snippets('|').map((c) => unfilled(c.insertText)),
+      ...snippets('@ |').map((c) => `@ ${unfilled(c.insertText)}`),
+      ...snippets('abg |').map((c) => `abg ${unfilled(c.insertText)}`),
+      ...snippets('vbg |').map((c) => `vbg ${unfilled(c.insertText)}`),
+    ];
+    expect(lines.length).toBe(10);
+    expect(lines.every((l) => !/[$]/.test(l))).toBe(true);
+    // After a real timepoint, so that the gas and vent lines are read as at a timepoint.
+    const text = ['@ day 1 08:00  arrival', ...lines].join('\n');
+    const findings = checkNote(text).findings.filter((f) => f.severity === 'error' || f.severity === 'warning');
+    lines.forEach((line, i) => {
+      expect(findings.some((f) => f.range.start.line === i + 1), `no finding on the unfilled snippet \`${line}\``).toBe(true);
+    });
   });
 
   it('narrows to a partly typed first word and replaces it', () => {
@@ -46,7 +69,7 @@ describe('at the start of a line', () => {
   });
 
   it('offers times after `@`', () => {
-    expect(labels('@ |')).toEqual(['day 1 08:00', '08:00', '+1h']);
+    expect(labels('@ |')).toEqual(['day N HH:MM', 'HH:MM', '+interval']);
     expect(labels('@ 08:00 |')).toEqual([]);
   });
 });
@@ -73,7 +96,8 @@ describe('keys', () => {
 
   it('offers a shorthand snippet first on a gas line', () => {
     const shorthand = complete('abg |').find((c) => c.kind === 'snippet');
-    expect(shorthand?.insertText).toBe('${1:7.40}/${2:40}/${3:90}/${4:24}');
+    expect(shorthand?.insertText).toBe('${1:pH}/${2:PaCO2}/${3:PaO2}/${4:HCO3}');
+    expect(complete('vbg |').find((c) => c.kind === 'snippet')?.insertText).toBe('${1:pH}/${2:PvCO2}/${3:PvO2}/${4:HCO3}');
   });
 });
 
@@ -110,6 +134,20 @@ describe('units', () => {
 
   it('falls back to keys when the typed word is not a unit', () => {
     expect(labels('vitals hr 80 rr|')).toEqual(['rr']);
+  });
+});
+
+describe('in the middle of a word', () => {
+  it('narrows by the text before the cursor and replaces the whole word', () => {
+    const items = complete('vitals    hr 80, s|p2 90');
+    const spo2 = items.find((c) => c.label === 'spo2');
+    expect(spo2?.replace).toEqual({ start: { line: 0, character: 17 }, end: { line: 0, character: 20 } });
+    expect(items.map((c) => c.label)).toEqual(['spo2']);
+    expect(complete('vi|ts hr 80')[0]).toMatchObject({ label: 'vitals', insertText: 'vitals', replace: { start: { line: 0, character: 0 }, end: { line: 0, character: 4 } } });
+    expect(complete('vent mode V|X')[0]).toMatchObject({ label: 'VC', replace: { start: { line: 0, character: 10 }, end: { line: 0, character: 12 } } });
+    expect(complete('abg po2 71k|p, pco2 40')[0]).toMatchObject({ label: 'kPa', replace: { start: { line: 0, character: 10 }, end: { line: 0, character: 12 } } });
+    // The word ends at a comment.
+    expect(complete('vitals hr 80, r|x# note')[0]?.replace?.end.character).toBe(16);
   });
 });
 

@@ -97,6 +97,19 @@ describe('minimal edits', () => {
     const text = note('vitals hr 1', 'vitals hr 2', 'vitals hr 3');
     expect(formatEdits(text, { start: 1, end: 1 }).map((e) => e.range.start.line)).toEqual([1]);
   });
+
+  it('formats requested lines as the whole-note formatter does, whatever the line endings, and past the end', () => {
+    const text = 'vitals hr 1\r\nvitals hr 2\rvitals hr 3\n\uFEFFvitals hr 4\r\n\r\nvitals hr 6';
+    const all = formatEdits(text);
+    for (let start = 0; start <= 7; start++) {
+      for (let end = start; end <= 8; end++) {
+        expect(formatEdits(text, { start, end }), `${start}-${end}`).toEqual(all.filter((e) => e.range.start.line >= start && e.range.start.line <= end));
+      }
+    }
+    expect(formatEdits('\uFEFFvitals hr 1', { start: 0, end: 0 })).toEqual(formatEdits('\uFEFFvitals hr 1'));
+    expect(formatEdits(text, { start: 3, end: 2 })).toEqual([]);
+    expect(formatEdits('', { start: 0, end: 3 })).toEqual([]);
+  });
 });
 
 // ── properties ─────────────────────────────────────────────────────────
@@ -181,6 +194,14 @@ describe('formatter properties', () => {
         expect(inked(other.text)).toBe(inked(node.text));
         if (other.text !== node.text) expect(isBlank(other.text.charCodeAt(other.text.length - 1)), 'trailing blank').toBe(false);
       });
+    }), { numRuns: FORMAT_RUNS });
+  });
+
+  it(`formats a span of lines as the whole-note formatter formats them (${FORMAT_RUNS} generated notes)`, () => {
+    fc.assert(fc.property(notes, fc.nat(40), fc.nat(40), (text, a, b) => {
+      const span = { start: Math.min(a, b), end: Math.max(a, b) };
+      const whole = formatEdits(text).filter((e) => e.range.start.line >= span.start && e.range.start.line <= span.end);
+      expect(formatEdits(text, span)).toEqual(whole);
     }), { numRuns: FORMAT_RUNS });
   });
 

@@ -75,3 +75,39 @@ describe('foldingRanges', () => {
     expect(foldingRanges(checkNote(note('patient age 60 y', 'vitals hr 80', 'abg po2 71', '@ 08:00')))).toEqual([{ startLine: 1, endLine: 2 }]);
   });
 });
+
+describe('folding regions', () => {
+  it('folds `# region` … `# endregion` comment pairs, nested, with kind region, beside the timepoints', () => {
+    const regions = note(
+      '# region header',          // 0
+      'patient   age 58 y',       // 1
+      '# endregion',              // 2
+      '@ 08:00  first',           // 3
+      '  #region gases',          // 4
+      'abg       7.29/49/74/23',  // 5
+      '# region inner',           // 6
+      'vbg       ph 7.28',        // 7
+      '#endregion inner',         // 8
+      '# endregion gases',        // 9
+      '@ 09:00',                  // 10
+    );
+    expect(foldingRanges(checkNote(regions))).toEqual([
+      { startLine: 0, endLine: 2, kind: 'region' },
+      { startLine: 3, endLine: 9 },
+      { startLine: 4, endLine: 9, kind: 'region' },
+      { startLine: 6, endLine: 8, kind: 'region' },
+    ]);
+  });
+
+  it('ignores unmatched markers, markers after content, and words that only start like them', () => {
+    const text = note(
+      '# endregion',              // 0: nothing open
+      '# region never closed',    // 1
+      '# regional note',          // 2: not a marker
+      '# region a',               // 3
+      'vitals    hr 80  # region', // 4: a trailing comment is not a marker
+      '# endregion a',            // 5
+    );
+    expect(foldingRanges(checkNote(text)).filter((r) => r.kind === 'region')).toEqual([{ startLine: 3, endLine: 5, kind: 'region' }]);
+  });
+});

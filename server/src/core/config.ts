@@ -76,11 +76,166 @@ function rangeOfKey(text: string, key: string): Range {
   return rangeOfOffsets(text, at, at + needle.length);
 }
 
+/**
+ * Where JSON.parse failed: the position its message gives (`… in JSON at position N`), else (the
+ * messages of Node 20 and later that quote the text instead, `Unexpected token 'b', "…" is not
+ * valid JSON`, and `Unexpected end of JSON input`) the first offset where the text stops being
+ * JSON, found by `jsonErrorOffset`. Offsets count from after a byte-order mark, as parsed.
+ */
 function rangeOfJsonError(text: string, message: string): Range {
-  const m = /position (\d+)/.exec(message);
-  if (!m?.[1]) return WHOLE_FIRST_LINE;
-  const at = Math.min(Number(m[1]), text.length);
+  const bom = text.charCodeAt(0) === 0xfeff ? 1 : 0;
+  const parsed = bom === 1 ? text.slice(1) : text;
+  const m = /at position (\d+)/.exec(message);
+  const offset = m?.[1] !== undefined ? Number(m[1]) : jsonErrorOffset(parsed);
+  if (offset === null) return WHOLE_FIRST_LINE;
+  const at = Math.min(offset + bom, text.length);
   return rangeOfOffsets(text, at, Math.min(at + 1, text.length));
+}
+
+const enum Json {
+  /** A value is expected. */
+  Value,
+  /** After `{`: a key or `}`. */
+  FirstKey,
+  /** After `,` in an object: a key. */
+  Key,
+  /** After a key: `:`. */
+  Colon,
+  /** After a value in an object: `,` or `}`. */
+  AfterMember,
+  /** After `[`: a value or `]`. */
+  FirstElement,
+  /** After a value in an array: `,` or `]`. */
+  AfterElement,
+  /** After the top-level value: nothing but blanks. */
+  End,
+}
+
+/**
+ * The offset of the first character where `text` stops being valid JSON (RFC 8259), the length of
+ * the text when it ends too early, or null when it is valid. Iterative: nesting depth costs no stack.
+ */
+export function jsonErrorOffset(text: string): number | null {
+  /** Open containers: true for an object. */
+  const open: boolean[] = [];
+  let state: Json = Json.Value;
+  let i = 0;
+  const n = text.length;
+  const afterValue = (): Json => (open.length === 0 ? Json.End : open[open.length - 1] ? Json.AfterMember : Json.AfterElement);
+  while (true) {
+    while (i < n) {
+      const c = text.charCodeAt(i);
+      if (c !== 0x20 && c !== 0x09 && c !== 0x0a && c !== 0x0d) break;
+      i++;
+    }
+    if (i >= n) return state === Json.End ? null : n;
+    const c = text.charCodeAt(i);
+    switch (state) {
+      case Json.End:
+        return i;
+      case Json.Colon:
+        if (c !== 0x3a) return i;
+        i++;
+        state = Json.Value;
+        continue;
+      case Json.AfterMember:
+      case Json.AfterElement: {
+        const close = state === Json.AfterMember ? 0x7d : 0x5d;
+        if (c === 0x2c) { i++; state = state === Json.AfterMember ? Json.Key : Json.Value; continue; }
+        if (c !== close) return i;
+        i++;
+        open.pop();
+        state = afterValue();
+        continue;
+      }
+      case Json.FirstKey:
+      case Json.Key: {
+        if (c === 0x7d && state === Json.FirstKey) { i++; open.pop(); state = afterValue(); continue; }
+        if (c !== 0x22) return i;
+        const end = stringEnd(text, i);
+        if (end < 0) return -end - 1;
+        i = end;
+        state = Json.Colon;
+        continue;
+      }
+      case Json.FirstElement:
+        if (c === 0x5d) { i++; open.pop(); state = afterValue(); continue; }
+        state = Json.Value;
+        continue;
+      case Json.Value: {
+        if (c === 0x7b) { i++; open.push(true); state = Json.FirstKey; continue; }
+        if (c === 0x5b) { i++; open.push(false); state = Json.FirstElement; continue; }
+        let end: number;
+        if (c === 0x22) end = stringEnd(text, i);
+        else if (c === 0x2d || (c >= 0x30 && c <= 0x39)) end = numberEnd(text, i);
+        else end = literalEnd(text, i);
+        if (end < 0) return -end - 1;
+        i = end;
+        state = afterValue();
+        continue;
+      }
+    }
+  }
+}
+
+/** The end of the string starting at `at` (a `"`), or -(offset of the error) - 1. */
+function stringEnd(text: string, at: number): number {
+  let i = at + 1;
+  while (i < text.length) {
+    const c = text.charCodeAt(i);
+    if (c === 0x22) return i + 1;
+    if (c < 0x20) return -i - 1;
+    if (c === 0x5c) {
+      const e = text.charCodeAt(i + 1);
+      if (e === 0x75) {
+        for (let k = 2; k < 6; k++) if (!isHexDigit(text.charCodeAt(i + k))) return -Math.min(i + k, text.length) - 1;
+        i += 6;
+        continue;
+      }
+      if (e !== 0x22 && e !== 0x5c && e !== 0x2f && e !== 0x62 && e !== 0x66 && e !== 0x6e && e !== 0x72 && e !== 0x74) return -Math.min(i + 1, text.length) - 1;
+      i += 2;
+      continue;
+    }
+    i++;
+  }
+  return -text.length - 1;
+}
+
+/** The end of the number starting at `at`, or -(offset of the error) - 1. */
+function numberEnd(text: string, at: number): number {
+  let i = at;
+  if (text.charCodeAt(i) === 0x2d) i++;
+  if (text.charCodeAt(i) === 0x30) i++;
+  else if (isDigitCode(text.charCodeAt(i))) while (isDigitCode(text.charCodeAt(i))) i++;
+  else return -Math.min(i, text.length) - 1;
+  if (text.charCodeAt(i) === 0x2e) {
+    i++;
+    if (!isDigitCode(text.charCodeAt(i))) return -Math.min(i, text.length) - 1;
+    while (isDigitCode(text.charCodeAt(i))) i++;
+  }
+  if ((text.charCodeAt(i) | 0x20) === 0x65) {
+    i++;
+    if (text.charCodeAt(i) === 0x2b || text.charCodeAt(i) === 0x2d) i++;
+    if (!isDigitCode(text.charCodeAt(i))) return -Math.min(i, text.length) - 1;
+    while (isDigitCode(text.charCodeAt(i))) i++;
+  }
+  return i;
+}
+
+/** The end of `true`, `false` or `null` at `at`, or -(offset of the first wrong character) - 1. */
+function literalEnd(text: string, at: number): number {
+  const word = text.charCodeAt(at) === 0x74 ? 'true' : text.charCodeAt(at) === 0x66 ? 'false' : text.charCodeAt(at) === 0x6e ? 'null' : '';
+  if (!word) return -at - 1;
+  for (let k = 1; k < word.length; k++) if (text.charCodeAt(at + k) !== word.charCodeAt(k)) return -Math.min(at + k, text.length) - 1;
+  return at + word.length;
+}
+
+function isDigitCode(c: number): boolean {
+  return c >= 0x30 && c <= 0x39;
+}
+
+function isHexDigit(c: number): boolean {
+  return (c >= 0x30 && c <= 0x39) || ((c | 0x20) >= 0x61 && (c | 0x20) <= 0x66);
 }
 
 function rangeOfOffsets(text: string, start: number, end: number): Range {

@@ -16,6 +16,8 @@ import {
   type Diagnostic,
   type InlayHint,
   type InitializeResult,
+  type Range,
+  FoldingRangeKind,
 } from 'vscode-languageserver/node';
 import { TextDocument } from 'vscode-languageserver-textdocument';
 import type { NoteResult } from '../core/check-note';
@@ -43,7 +45,7 @@ import {
 import { ProjectConfigs } from '../node/project-config';
 import { DEFAULT_CLIENT_SETTINGS, effectiveSettings, readClientSettings, settingsKey, type ClientSettings, type EffectiveSettings } from './settings';
 import { IdleCollector } from './memory';
-import { isHintRef, rangesOverlap, toCodeAction, toCompletionItem, toDiagnostic, toDocumentSymbol, toInlayHint } from './translate';
+import { fixedFindings, isHintRef, rangesOverlap, toCodeAction, toCompletionItem, toDiagnostic, toDocumentSymbol, toInlayHint } from './translate';
 
 interface NoteState {
   session: NoteSession;
@@ -83,6 +85,17 @@ function docsUri(): string {
   return pathToFileURL(found).toString();
 }
 
+/**
+ * The lines a range formatting request covers, both ends inclusive. An end at the start of a
+ * line (a selection of whole lines, as editors make them) leaves that line out.
+ */
+export function formattedLines(range: Range): { start: number; end: number } | null {
+  const start = range.start.line;
+  let end = range.end.line;
+  if (end > start && range.end.character === 0) end--;
+  return end >= start && start >= 0 ? { start, end } : null;
+}
+
 /** Lines read in the first step of a big analysis, and the time each later step aims at. */
 const FIRST_STEP_LINES = 500;
 const STEP_BUDGET_MS = 25;
@@ -99,6 +112,16 @@ export function nextStepLines(lines: number, tookMs: number, readLines = 0): num
   const scaled = tookMs > 0 ? (lines * STEP_BUDGET_MS) / tookMs : lines * 2;
   const budgeted = Math.min(lines * 2, Math.max(100, Math.min(8000, scaled)));
   return Math.round(Math.max(budgeted, readLines / 16));
+}
+
+/**
+ * The size of a note in UTF-8 bytes, as `maxNoteSizeKb` counts it. Cheap when the UTF-16 length
+ * decides (a code unit is 1 to 3 bytes): the bytes are counted only in between.
+ */
+export function exceedsBytes(text: string, maxBytes: number): boolean {
+  if (text.length > maxBytes) return true;
+  if (text.length * 3 <= maxBytes) return false;
+  return Buffer.byteLength(text, 'utf8') > maxBytes;
 }
 
 export function startServer(connection: Connection, collector: IdleCollector = new IdleCollector()): void {
@@ -118,6 +141,12 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     return d;
   };
   let canPullConfiguration = false;
+  /** Settings the client pushed with `workspace/didChangeConfiguration` (when it cannot be asked). */
+  let pushedSettings: ClientSettings | null = null;
+  /** The client takes both an insert and a replace range for a completion. */
+  let insertReplace = false;
+  /** Problems with the editor's settings already logged (each once). */
+  const loggedProblems = new Set<string>();
   /** The client fetches a hint's tooltip when it shows it (`inlayHint/resolve`). */
   let deferHintTooltips = false;
 
@@ -134,6 +163,7 @@ export function startServer(connection: Connection, collector: IdleCollector = n
   connection.onInitialize((params): InitializeResult => {
     canPullConfiguration = params.capabilities.workspace?.configuration === true;
     deferHintTooltips = params.capabilities.textDocument?.inlayHint?.resolveSupport?.properties.includes('tooltip') === true;
+    insertReplace = params.capabilities.textDocument?.completion?.completionItem?.insertReplaceSupport === true;
     return {
       capabilities: {
         textDocumentSync: { openClose: true, change: TextDocumentSyncKind.Incremental, save: false },
@@ -154,12 +184,26 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     if (canPullConfiguration) void connection.client.register(DidChangeConfigurationNotification.type, undefined).catch(() => undefined);
   });
 
+  /** The editor's settings for a note: asked for it, else pushed by the client, else the defaults. */
+  function clientSettingsOf(uri: string): ClientSettings {
+    return clientSettings.get(uri) ?? pushedSettings ?? DEFAULT_CLIENT_SETTINGS;
+  }
+
+  /** Reads settings from the client, dropping invalid keys (each problem logged once). */
+  function readSettings(raw: unknown): ClientSettings {
+    const { settings, problem } = readClientSettings(raw);
+    if (problem && !loggedProblems.has(problem)) {
+      loggedProblems.add(problem);
+      connection.console.warn(`pneumark: settings ignored (${problem}); the other settings apply`);
+    }
+    return settings;
+  }
+
   async function pullClientSettings(uri: string): Promise<ClientSettings> {
-    if (!canPullConfiguration) return clientSettings.get(uri) ?? DEFAULT_CLIENT_SETTINGS;
+    if (!canPullConfiguration) return clientSettingsOf(uri);
     try {
       const raw: unknown = await connection.workspace.getConfiguration({ scopeUri: uri, section: 'pneumark' });
-      const { settings, problem } = readClientSettings(raw);
-      if (problem) connection.console.warn(`pneumark: settings ignored (${problem}); defaults are used`);
+      const settings = readSettings(raw);
       clientSettings.set(uri, settings);
       return settings;
     } catch {
@@ -170,7 +214,7 @@ export function startServer(connection: Connection, collector: IdleCollector = n
   function settingsFor(uri: string): EffectiveSettings {
     const found = configs.forNote(uri);
     publishConfigProblems(found?.path ?? null, found?.config.problems ?? []);
-    return effectiveSettings(clientSettings.get(uri) ?? DEFAULT_CLIENT_SETTINGS, found?.config ?? null);
+    return effectiveSettings(clientSettingsOf(uri), found?.config ?? null);
   }
 
   function publishConfigProblems(path: string | null, problems: readonly { message: string; range: Diagnostic['range'] }[]): void {
@@ -199,8 +243,9 @@ export function startServer(connection: Connection, collector: IdleCollector = n
 
   /** The analysis of a document's current text (reusing what did not change); null when too large. */
   function resultFor(doc: TextDocument, state = stateFor(doc)): NoteResult | null {
-    if (doc.getText().length > state.settings.maxNoteBytes) return null;
-    return state.session.update(doc.getText());
+    const text = doc.getText();
+    if (exceedsBytes(text, state.settings.maxNoteBytes)) return null;
+    return state.session.update(text);
   }
 
   /**
@@ -217,13 +262,13 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     const version = doc.version;
     const started = performance.now();
     const text = doc.getText();
-    if (text.length > state.settings.maxNoteBytes) {
+    if (exceedsBytes(text, state.settings.maxNoteBytes)) {
       publish(uri, state, version, started, [{
         range: { start: { line: 0, character: 0 }, end: { line: 0, character: 0 } },
         severity: 3,
         source: 'pneumark',
         code: 'too-large',
-        message: `Pneumark does not analyse notes over ${Math.round(state.settings.maxNoteBytes / 1024)} KB (this one is ${(text.length / 1048576).toFixed(1)} MB): split it into smaller notes, or raise pneumark.maxNoteSizeKb.`,
+        message: `Pneumark does not analyse notes over ${Math.round(state.settings.maxNoteBytes / 1024)} KB (this one is ${(Buffer.byteLength(text, 'utf8') / 1048576).toFixed(1)} MB): split it into smaller notes, or raise pneumark.maxNoteSizeKb.`,
       }]);
       return;
     }
@@ -284,7 +329,7 @@ export function startServer(connection: Connection, collector: IdleCollector = n
   /** Whether analysing the document's text now would take steps (a first read, a big change). */
   function wouldStep(state: NoteState, doc: TextDocument): boolean {
     const text = doc.getText();
-    return text.length <= state.settings.maxNoteBytes && state.session.wouldStep(text, FIRST_STEP_LINES);
+    return !exceedsBytes(text, state.settings.maxNoteBytes) && state.session.wouldStep(text, FIRST_STEP_LINES);
   }
 
   function publish(uri: string, state: NoteState, version: number, started: number, diagnostics: Diagnostic[], timing = { steps: 1, longestStepMillis: performance.now() - started }): void {
@@ -340,8 +385,13 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     void connection.sendDiagnostics({ uri: e.document.uri, diagnostics: [] });
   });
 
-  connection.onDidChangeConfiguration(() => {
+  connection.onDidChangeConfiguration((params: { settings?: unknown }) => {
     clientSettings.clear();
+    if (!canPullConfiguration) {
+      // A client that cannot be asked pushes its settings: `{ settings: { pneumark: { ... } } }`.
+      const pushed: unknown = params?.settings;
+      if (pushed && typeof pushed === 'object') pushedSettings = readSettings((pushed as Record<string, unknown>)['pneumark'] ?? {});
+    }
     for (const doc of documents.all()) {
       void pullClientSettings(doc.uri).then(() => schedule(doc.uri, true));
     }
@@ -366,7 +416,8 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     return hover ? { range: hover.range, contents: { kind: 'markdown', value: hover.markdown } } : null;
   }));
 
-  connection.onCompletion(withResult('completion', [], (result, _doc, _state, params) => completionsAt(result, params.position).map(toCompletionItem)));
+  connection.onCompletion(withResult('completion', [], (result, _doc, _state, params) =>
+    completionsAt(result, params.position).map((c, i) => toCompletionItem(c, i, params.position, insertReplace))));
 
   connection.languages.inlayHint.on(withResult('inlay hints', [], (result, doc, state, params) =>
     inlayHints(result, { start: params.range.start.line, end: params.range.end.line }, { categories: state.settings.hints })
@@ -393,19 +444,29 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     const only = params.context.only;
     return codeActions(result, params.range)
       .filter((a) => !only || only.some((k) => a.kind === k || a.kind.startsWith(`${k}.`)))
-      .map((a) => toCodeAction(a, doc.uri, diagnostics));
+      .map((a) => toCodeAction(a, doc.uri, diagnostics, fixedFindings(a, result.findings)));
   }));
 
   connection.onDocumentSymbol(withResult('symbols', [], (result) => documentSymbols(result).map(toDocumentSymbol)));
-  connection.onFoldingRanges(withResult('folding', [], (result) => foldingRanges(result).map((r) => ({ startLine: r.startLine, endLine: r.endLine }))));
+  connection.onFoldingRanges(withResult('folding', [], (result) => foldingRanges(result).map((r) => (r.kind === 'region' ? { startLine: r.startLine, endLine: r.endLine, kind: FoldingRangeKind.Region } : { startLine: r.startLine, endLine: r.endLine }))));
+
+  /** The note's text when it may be formatted: not over `maxNoteSizeKb` (like its analysis). */
+  function formattable(uri: string): string | null {
+    const doc = documents.get(uri);
+    if (!doc) return null;
+    const text = doc.getText();
+    const maxBytes = (notes.get(uri)?.settings ?? settingsFor(uri)).maxNoteBytes;
+    return exceedsBytes(text, maxBytes) ? null : text;
+  }
 
   connection.onDocumentFormatting(guard('formatting', [], (params: { textDocument: { uri: string } }) => {
-    const doc = documents.get(params.textDocument.uri);
-    return doc ? formatEdits(doc.getText()) : [];
+    const text = formattable(params.textDocument.uri);
+    return text === null ? [] : formatEdits(text);
   }));
-  connection.onDocumentRangeFormatting(guard('range formatting', [], (params: { textDocument: { uri: string }; range: { start: { line: number }; end: { line: number } } }) => {
-    const doc = documents.get(params.textDocument.uri);
-    return doc ? formatEdits(doc.getText(), { start: params.range.start.line, end: params.range.end.line }) : [];
+  connection.onDocumentRangeFormatting(guard('range formatting', [], (params: { textDocument: { uri: string }; range: Range }) => {
+    const text = formattable(params.textDocument.uri);
+    const lines = formattedLines(params.range);
+    return text === null || lines === null ? [] : formatEdits(text, lines);
   }));
 
   connection.onRequest(TRENDS_REQUEST, (params: TrendsParams) => afterReading(params.uri, null, () => guard('trends', null, (p: TrendsParams): TrendsResult | null => {

@@ -1,6 +1,7 @@
 /**
- * Settings as the editor sends them (`workspace/configuration`, section `pneumark`), validated
- * with zod: a wrong shape never reaches the core; the defaults stand in and the problem is logged.
+ * Settings as the editor sends them (`workspace/configuration`, section `pneumark`, or pushed with
+ * `workspace/didChangeConfiguration`), validated with zod key by key: a value of the wrong shape
+ * never reaches the core; that key takes its default, the others apply, and the problem is logged.
  * The project file `pneumark.config.json` (see ../core/config.ts) overrides the editor's
  * analysis settings, so a team's note conventions are the same in every editor and in CI.
  */
@@ -26,17 +27,53 @@ export const DEFAULT_CLIENT_SETTINGS: ClientSettings = clientSettingsSchema.pars
 
 /**
  * Reads the `pneumark` configuration section. The client contributes flat keys
- * (`pneumark.gasUnit`, `pneumark.hints.mechanics`, ...): they arrive as a nested object.
+ * (`pneumark.gasUnit`, `pneumark.hints.mechanics`, ...): they arrive as a nested object. Each key
+ * is validated on its own: an invalid one is dropped (and named in `problem`), the others apply.
  */
 export function readClientSettings(raw: unknown): { settings: ClientSettings; problem: string | null } {
-  const source = raw && typeof raw === 'object' ? (raw as Record<string, unknown>) : {};
-  const analysisKeys = Object.keys(settingsSchema.shape);
+  const source = isRecord(raw) ? raw : {};
+  const problems: string[] = [];
+  const take = <S extends z.ZodType>(key: string, schema: S, value: unknown): z.output<S> | undefined => {
+    if (value === undefined || value === null) return undefined;
+    const parsed = schema.safeParse(value);
+    if (parsed.success) return parsed.data;
+    problems.push(`pneumark.${key}: ${parsed.error.issues.map((i) => i.message).join(', ')}`);
+    return undefined;
+  };
+
   const analysis: Record<string, unknown> = {};
-  for (const key of analysisKeys) if (source[key] !== undefined && source[key] !== null) analysis[key] = source[key];
-  const candidate = { analysis, hints: source.hints ?? {}, debounceMs: source.debounceMs, maxNoteSizeKb: source.maxNoteSizeKb };
-  const parsed = clientSettingsSchema.safeParse(candidate);
-  if (parsed.success) return { settings: parsed.data, problem: null };
-  return { settings: DEFAULT_CLIENT_SETTINGS, problem: parsed.error.issues.map((i) => `pneumark.${i.path.join('.')}: ${i.message}`).join('; ') };
+  for (const [key, schema] of Object.entries(settingsSchema.shape)) {
+    if (!Object.prototype.hasOwnProperty.call(source, key)) continue;
+    const value = take(key, schema.unwrap(), source[key]);
+    if (value !== undefined) analysis[key] = value;
+  }
+  const hints: Record<string, boolean> = {};
+  const rawHints = Object.prototype.hasOwnProperty.call(source, 'hints') ? source['hints'] : undefined;
+  if (isRecord(rawHints)) {
+    for (const key of Object.keys(rawHints)) {
+      if (key === '__proto__') continue;
+      const on = take(`hints.${key}`, z.boolean(), rawHints[key]);
+      if (on !== undefined) hints[key] = on;
+    }
+  } else if (rawHints !== undefined && rawHints !== null) {
+    problems.push('pneumark.hints: expected an object of booleans');
+  }
+  const own = (key: string): unknown => (Object.prototype.hasOwnProperty.call(source, key) ? source[key] : undefined);
+  const debounceMs = take('debounceMs', clientSettingsSchema.shape.debounceMs.unwrap(), own('debounceMs'));
+  const maxNoteSizeKb = take('maxNoteSizeKb', clientSettingsSchema.shape.maxNoteSizeKb.unwrap(), own('maxNoteSizeKb'));
+  // Only the keys the client wrote (validated one by one above): the defaults fill in later.
+  const settings: ClientSettings = {
+    ...DEFAULT_CLIENT_SETTINGS,
+    analysis: analysis as Partial<Settings>,
+    hints,
+    ...(debounceMs !== undefined ? { debounceMs } : {}),
+    ...(maxNoteSizeKb !== undefined ? { maxNoteSizeKb } : {}),
+  };
+  return { settings, problem: problems.length > 0 ? problems.join('; ') : null };
+}
+
+function isRecord(value: unknown): value is Record<string, unknown> {
+  return typeof value === 'object' && value !== null && !Array.isArray(value);
 }
 
 export interface EffectiveSettings {

@@ -11,6 +11,9 @@ import {
   type Diagnostic,
   type DocumentSymbol,
   type InlayHint,
+  type InsertReplaceEdit,
+  type Position,
+  type TextEdit,
 } from 'vscode-languageserver/node';
 import type { ActionInfo, CompletionInfo, InlayHintInfo, SymbolInfo } from '../core/service/types';
 import type { Finding, Range, Severity } from '../core/types';
@@ -70,16 +73,28 @@ const COMPLETION_KIND: Readonly<Record<CompletionInfo['kind'], CompletionItemKin
   snippet: CompletionItemKind.Snippet,
 };
 
-export function toCompletionItem(c: CompletionInfo, index: number): CompletionItem {
+/**
+ * A completion item. `c.replace` covers the whole word under the cursor; a client that supports
+ * `insertReplaceSupport` gets both ranges (insert: up to the cursor; replace: the whole word) and
+ * picks one by its own setting, any other client gets the whole word replaced.
+ */
+export function toCompletionItem(c: CompletionInfo, index: number, cursor: Position | null = null, insertReplace = false): CompletionItem {
   return {
     label: c.label,
     kind: COMPLETION_KIND[c.kind],
     ...(c.detail ? { detail: c.detail } : {}),
     ...(c.documentation ? { documentation: { kind: MarkupKind.Markdown, value: c.documentation } } : {}),
     insertTextFormat: c.isSnippet ? InsertTextFormat.Snippet : InsertTextFormat.PlainText,
-    ...(c.replace ? { textEdit: { range: c.replace, newText: c.insertText } } : { insertText: c.insertText }),
+    ...(c.replace ? { textEdit: completionEdit(c.replace, c.insertText, cursor, insertReplace) } : { insertText: c.insertText }),
     sortText: String(index).padStart(4, '0'),
   };
+}
+
+function completionEdit(replace: Range, newText: string, cursor: Position | null, insertReplace: boolean): TextEdit | InsertReplaceEdit {
+  const inside = cursor !== null && cursor.line === replace.start.line && cursor.line === replace.end.line
+    && cursor.character >= replace.start.character && cursor.character < replace.end.character;
+  if (!insertReplace || !inside) return { range: replace, newText };
+  return { newText, insert: { start: replace.start, end: cursor }, replace };
 }
 
 const ACTION_KIND: Readonly<Record<ActionInfo['kind'], string>> = {
@@ -88,8 +103,13 @@ const ACTION_KIND: Readonly<Record<ActionInfo['kind'], string>> = {
   'source.fixAll': CodeActionKind.SourceFixAll,
 };
 
-export function toCodeAction(a: ActionInfo, uri: string, diagnostics: readonly Diagnostic[]): CodeAction {
-  const related = a.findingCodes ? diagnostics.filter((d) => typeof d.code === 'string' && a.findingCodes!.includes(d.code)) : [];
+/**
+ * A code action, with the diagnostics it resolves: those of the findings it fixes (`fixed`, see
+ * `fixedFindings`), matched by code and range. Another finding of the same code is not claimed.
+ */
+export function toCodeAction(a: ActionInfo, uri: string, diagnostics: readonly Diagnostic[], fixed: readonly Finding[] = []): CodeAction {
+  const keys = new Set(fixed.map((f) => diagnosticKey(f.code, f.range)));
+  const related = keys.size > 0 ? diagnostics.filter((d) => typeof d.code === 'string' && keys.has(diagnosticKey(d.code, d.range))) : [];
   return {
     title: a.title,
     kind: ACTION_KIND[a.kind],
@@ -97,6 +117,34 @@ export function toCodeAction(a: ActionInfo, uri: string, diagnostics: readonly D
     ...(related.length > 0 ? { diagnostics: related } : {}),
     ...(a.preferred ? { isPreferred: true } : {}),
   };
+}
+
+function diagnosticKey(code: string, r: Range): string {
+  return `${code}@${r.start.line}:${r.start.character}-${r.end.line}:${r.end.character}`;
+}
+
+function editKey(e: TextEdit): string {
+  return `${e.range.start.line}:${e.range.start.character}-${e.range.end.line}:${e.range.end.character}=${e.newText}`;
+}
+
+/**
+ * The findings an action fixes: those of its codes with a fix whose edits the action makes (a
+ * quick fix makes one finding's fix; a fix-all the fixes of many). A fix without edits is the
+ * action only when titles match.
+ */
+export function fixedFindings(a: ActionInfo, findings: readonly Finding[]): Finding[] {
+  const codes = a.findingCodes;
+  if (!codes || codes.length === 0) return [];
+  const made = new Set(a.edits.map(editKey));
+  const out: Finding[] = [];
+  for (const f of findings) {
+    if (!codes.includes(f.code)) continue;
+    const fixes = f.fixes.some((fix) => fix.edits.length > 0
+      ? fix.edits.every((e) => made.has(editKey(e)))
+      : a.edits.length === 0 && fix.title === a.title);
+    if (fixes) out.push(f);
+  }
+  return out;
 }
 
 const SYMBOL_KIND: Readonly<Record<SymbolInfo['kind'], SymbolKind>> = {

@@ -7,7 +7,8 @@
  *   line starts with its device; a gas line may start with a shorthand);
  * - after a key that takes a word (`mode`, `sex`, `gas`, `device`): its words;
  * - after a key and a number (or a shorthand gas, or a device's flow): the units it takes.
- * Completions are narrowed to those whose label starts with the typed text.
+ * Completions are narrowed to those whose label starts with the text typed before the cursor, and
+ * replace the whole word under the cursor (the part after it too: `sp|2` becomes `spo2`).
  */
 import type { NoteResult } from '../check-note';
 import { displayUnit } from '../analysis/read-value';
@@ -50,10 +51,10 @@ export function completionsAt(result: NoteResult, position: Position): Completio
 
   if (!first) {
     const restOfLine = text.slice(wordEnd).trim();
-    return narrow(lineStartCompletions(restOfLine === '', lineRange(line, wordStart, ch)), typed);
+    return narrow(lineStartCompletions(restOfLine === '', lineRange(line, wordStart, wordEnd)), typed);
   }
   if (first.text.startsWith('@')) {
-    return chunks.length === 1 && first.text === '@' ? narrow(timeCompletions(lineRange(line, wordStart, ch)), typed) : [];
+    return chunks.length === 1 && first.text === '@' ? narrow(timeCompletions(lineRange(line, wordStart, wordEnd)), typed) : [];
   }
   const section = sectionByName(first.text);
   if (!section || section.id === 'note') return [];
@@ -70,7 +71,8 @@ export function completionsAt(result: NoteResult, position: Position): Completio
     afterNumber = true;
   }
 
-  const replace = lineRange(line, wordStart, ch);
+  // The whole word under the cursor is replaced, also the part after it (`sp|2` becomes `spo2`).
+  const replace = lineRange(line, wordStart, wordEnd);
   const used = usedFields(section.id, node.kind === 'section' ? node.items : [], wordStart);
   const keys = () => narrow(keyCompletions(section.id, used, replace), typed);
   const last = chunks[chunks.length - 1]!;
@@ -88,7 +90,7 @@ export function completionsAt(result: NoteResult, position: Position): Completio
   const item = items[items.length - 1];
   if (!item || item.span.end !== last.span.end) return afterNumber ? [] : keys();
   const field = fieldFor(section.id, item.keyName);
-  const unitRange = lineRange(line, unitStart, ch);
+  const unitRange = lineRange(line, unitStart, wordEnd);
 
   if (afterNumber) {
     // `key 71mm|`: the number belongs to the last key, which has no value yet.
@@ -119,21 +121,33 @@ function lineStartCompletions(emptyRest: boolean, replace: Range): CompletionInf
     insertText: emptyRest ? `${s.id.padEnd(ITEM_COLUMN - 1)} ` : s.id,
     replace,
   }));
+  // Placeholders are words, never plausible numbers or times: a stop left unfilled is reported
+  // (as in grammar/snippets.json) instead of reading as a normal gas or a real time.
   const snippets: CompletionInfo[] = [
-    { label: '@ day 1 08:00  label', kind: 'snippet', detail: 'timepoint on a given day', documentation: 'A timepoint: the day of the note (day 1 is the first), the clock time, and a label.', insertText: '@ day ${1:1} ${2:08:00}  ${3:label}', isSnippet: true, replace },
-    { label: '@ 08:00  label', kind: 'snippet', detail: 'timepoint at a clock time', documentation: 'A timepoint at a clock time: the same day as the previous one, or the next day when the clock is earlier.', insertText: '@ ${1:08:00}  ${2:label}', isSnippet: true, replace },
-    { label: '@ +1h', kind: 'snippet', detail: 'timepoint after an interval', documentation: 'A timepoint an interval after the previous one: `+2h30`, `+45m`, `+1d`.', insertText: '@ +${1:1h}', isSnippet: true, replace },
-    { label: 'abg pH/PCO2/PO2/HCO3', kind: 'snippet', detail: 'arterial gas, shorthand', documentation: 'A full arterial gas in shorthand: pH / PaCO2 / PaO2 / HCO3. The numbers are placeholders: replace every one.', insertText: `${'abg'.padEnd(ITEM_COLUMN)}\${1:7.40}/\${2:40}/\${3:90}/\${4:24}`, isSnippet: true, replace },
-    { label: 'vent mode, vt, rate, peep, fio2', kind: 'snippet', detail: 'ventilator settings', documentation: 'A ventilator line with its main settings. The numbers are placeholders: replace every one.', insertText: `${'vent'.padEnd(ITEM_COLUMN)}mode \${1:VC}, vt \${2:400} mL, rate \${3:16}, peep \${4:5}, fio2 \${5:0.4}`, isSnippet: true, replace },
+    { label: '@ day N HH:MM  label', kind: 'snippet', detail: 'timepoint on a given day', documentation: `A timepoint: the day of the note (day 1 is the first), the clock time, and a label. ${PLACEHOLDERS}`, insertText: '@ day ${1:N} ${2:HH:MM}  ${3:label}', isSnippet: true, replace },
+    { label: '@ HH:MM  label', kind: 'snippet', detail: 'timepoint at a clock time', documentation: `A timepoint at a clock time: the same day as the previous one, or the next day when the clock is earlier. ${PLACEHOLDERS}`, insertText: '@ ${1:HH:MM}  ${2:label}', isSnippet: true, replace },
+    { label: '@ +interval', kind: 'snippet', detail: 'timepoint after an interval', documentation: `A timepoint an interval after the previous one: \`+2h30\`, \`+45m\`, \`+1d\`. ${PLACEHOLDERS}`, insertText: '@ +${1:interval}', isSnippet: true, replace },
+    { label: 'abg pH/PaCO2/PaO2/HCO3', kind: 'snippet', detail: 'arterial gas, shorthand', documentation: `A full arterial gas in shorthand: pH / PaCO2 / PaO2 / HCO3. ${PLACEHOLDERS}`, insertText: `${'abg'.padEnd(ITEM_COLUMN)}${ARTERIAL_SHORTHAND}`, isSnippet: true, replace },
+    { label: 'vent mode, vt, rate, peep, fio2', kind: 'snippet', detail: 'ventilator settings', documentation: `A ventilator line with its main settings. ${PLACEHOLDERS}`, insertText: `${'vent'.padEnd(ITEM_COLUMN)}mode ${modeChoice()}, vt \${2:VT} mL, rate \${3:rate}, peep \${4:PEEP}, fio2 \${5:FiO2}`, isSnippet: true, replace },
   ];
   return [...sections, ...snippets];
 }
 
+const PLACEHOLDERS = 'Every placeholder is a word: one left unfilled is reported.';
+const ARTERIAL_SHORTHAND = '${1:pH}/${2:PaCO2}/${3:PaO2}/${4:HCO3}';
+const VENOUS_SHORTHAND = '${1:pH}/${2:PvCO2}/${3:PvO2}/${4:HCO3}';
+
+/** The first tab stop of the vent snippet: a choice of the ventilator modes of the registry. */
+function modeChoice(): string {
+  const words = [...new Set(Object.values(fieldFor('vent', 'mode')?.words ?? {}))].filter((w) => /^[A-Za-z0-9]+$/.test(w));
+  return words.length > 0 ? `\${1|${words.join(',')}|}` : '${1:mode}';
+}
+
 function timeCompletions(replace: Range): CompletionInfo[] {
   return [
-    { label: 'day 1 08:00', kind: 'snippet', detail: 'day and clock time', insertText: 'day ${1:1} ${2:08:00}  ${3:label}', isSnippet: true, replace },
-    { label: '08:00', kind: 'snippet', detail: 'clock time', insertText: '${1:08:00}  ${2:label}', isSnippet: true, replace },
-    { label: '+1h', kind: 'snippet', detail: 'interval after the previous timepoint', insertText: '+${1:1h}', isSnippet: true, replace },
+    { label: 'day N HH:MM', kind: 'snippet', detail: 'day and clock time', insertText: 'day ${1:N} ${2:HH:MM}  ${3:label}', isSnippet: true, replace },
+    { label: 'HH:MM', kind: 'snippet', detail: 'clock time', insertText: '${1:HH:MM}  ${2:label}', isSnippet: true, replace },
+    { label: '+interval', kind: 'snippet', detail: 'interval after the previous timepoint', insertText: '+${1:interval}', isSnippet: true, replace },
   ];
 }
 
@@ -143,8 +157,8 @@ function shorthandSnippet(section: SectionId, replace: Range): CompletionInfo {
     label: venous ? 'pH/PvCO2/PvO2/HCO3' : 'pH/PaCO2/PaO2/HCO3',
     kind: 'snippet',
     detail: 'shorthand gas',
-    documentation: 'pH, PCO2, PO2 and HCO3 in that order. The numbers are placeholders: replace every one.',
-    insertText: venous ? '${1:7.35}/${2:46}/${3:40}/${4:25}' : '${1:7.40}/${2:40}/${3:90}/${4:24}',
+    documentation: `pH, PCO2, PO2 and HCO3 in that order. ${PLACEHOLDERS}`,
+    insertText: venous ? VENOUS_SHORTHAND : ARTERIAL_SHORTHAND,
     isSnippet: true,
     replace,
   };

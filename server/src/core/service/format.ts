@@ -41,18 +41,47 @@ export function formatNote(text: string): string {
 
 /**
  * Minimal edits that bring the note (or only the given lines, both ends inclusive) into the
- * canonical layout: one edit per changed line, covering only the part that changes.
+ * canonical layout: one edit per changed line, covering only the part that changes. Given lines,
+ * only those are cut out of the text and parsed (lines are read independently), so formatting a
+ * few lines of a long note costs little more than finding where they start.
  */
 export function formatEdits(text: string, lines?: LineSpan): TextEdit[] {
-  const tree = parseNote(text);
   const edits: TextEdit[] = [];
-  for (const node of tree.lines) {
-    if (lines && (node.line < lines.start || node.line > lines.end)) continue;
-    const formatted = formatLine(node);
-    if (formatted === null || formatted === node.text) continue;
-    edits.push(lineEdit(node.line, node.text, formatted));
+  if (!lines) {
+    for (const node of parseNote(text).lines) pushLineEdit(edits, node);
+    return edits;
   }
+  if (lines.end < lines.start || lines.end < 0) return edits;
+  forLinesIn(text, Math.max(0, lines.start), lines.end, (line, number) => pushLineEdit(edits, parseLine(line, number)));
   return edits;
+}
+
+function pushLineEdit(edits: TextEdit[], node: LineNode): void {
+  const formatted = formatLine(node);
+  if (formatted !== null && formatted !== node.text) edits.push(lineEdit(node.line, node.text, formatted));
+}
+
+/**
+ * Hands the text of lines `first` to `last` (inclusive, those that exist) to `visit`, cutting
+ * lines as the parser does (`\n`, `\r\n` and `\r` all end a line) and stopping after `last`.
+ */
+function forLinesIn(text: string, first: number, last: number, visit: (line: string, number: number) => void): void {
+  let start = 0;
+  let number = 0;
+  let lf = text.indexOf('\n');
+  let cr = text.indexOf('\r');
+  while (number <= last) {
+    if (lf < 0 && cr < 0) {
+      if (number >= first) visit(text.slice(start), number);
+      return;
+    }
+    const end = cr < 0 || (lf >= 0 && lf < cr) ? lf : cr;
+    if (number >= first) visit(text.slice(start, end), number);
+    start = end === cr && lf === end + 1 ? end + 2 : end + 1;
+    if (lf >= 0 && lf < start) lf = text.indexOf('\n', start);
+    if (cr >= 0 && cr < start) cr = text.indexOf('\r', start);
+    number++;
+  }
 }
 
 /** The canonical form of one parsed line, or null when the line is left as it is. */

@@ -2,7 +2,8 @@
  * The outline of a note and its folding ranges. Timepoints are the outline: each names its
  * label, shows its time, spans its lines (trailing blank lines excluded) and holds its section
  * lines as children. Lines before the first timepoint that describe the patient, the place
- * and the units form a "header" symbol. Each timepoint spanning more than one line folds.
+ * and the units form a "header" symbol. Each timepoint spanning more than one line folds, and so
+ * does each `# region` … `# endregion` pair of comment lines.
  */
 import type { NoteResult } from '../check-note';
 import type { Timepoint } from '../analysis/model';
@@ -103,14 +104,46 @@ function firstValueLine(lines: readonly LineNode[], before: number): number | nu
   return null;
 }
 
-export function foldingRanges(result: NoteResult): FoldingRangeInfo[] {
+/** A folding range: a timepoint's lines, or (kind `region`) a `# region` … `# endregion` pair. */
+export interface FoldingInfo extends FoldingRangeInfo {
+  readonly kind?: 'region';
+}
+
+/** `# region` and `# endregion` comments (the markers of grammar/language-configuration.json). */
+const REGION_START = /^#\s*region\b/;
+const REGION_END = /^#\s*endregion\b/;
+
+export function foldingRanges(result: NoteResult): FoldingInfo[] {
   const lines = result.analysis.tree.lines;
-  const out: FoldingRangeInfo[] = [];
+  const out: FoldingInfo[] = [];
   const firstTpLine = result.analysis.timeline.timepoints.find((t) => t.line !== null)?.line ?? lines.length;
   for (const tp of result.analysis.timeline.timepoints) {
     const start = tp.line ?? firstValueLine(lines, firstTpLine) ?? tp.startLine;
     const end = lastFilledLine(lines, start, Math.max(start, tp.endLine));
     if (end > start) out.push({ startLine: start, endLine: end });
+  }
+  const regions = regionRanges(lines);
+  if (regions.length === 0) return out;
+  return [...out, ...regions].sort((a, b) => a.startLine - b.startLine || b.endLine - a.endLine);
+}
+
+/**
+ * `# region` … `# endregion` pairs on comment-only lines, nested as written: an end closes the
+ * latest open region; an end with none open, and a region never closed, fold nothing.
+ */
+function regionRanges(lines: readonly LineNode[]): FoldingInfo[] {
+  const out: FoldingInfo[] = [];
+  const open: number[] = [];
+  for (let i = 0; i < lines.length; i++) {
+    const node = lines[i]!;
+    if (node.kind !== 'blank' || node.comment === null) continue;
+    const comment = node.comment.text;
+    if (REGION_END.test(comment)) {
+      const start = open.pop();
+      if (start !== undefined && i > start) out.push({ startLine: start, endLine: i, kind: 'region' });
+    } else if (REGION_START.test(comment)) {
+      open.push(i);
+    }
   }
   return out;
 }

@@ -124,7 +124,10 @@ function gasUnitItems(result: NoteResult): { line: number; item: ItemNode }[] {
   return out;
 }
 
-/** Where a new `units gas` line goes: after the leading patient lines, before anything else. */
+/**
+ * Where a new `units gas` line goes: after the leading patient lines, before anything else; at
+ * the top of a note with nothing but blank lines (an empty note gets no blank line before it).
+ */
 function unitsLineInsertion(result: NoteResult): number {
   const lines = result.analysis.tree.lines;
   let at = -1;
@@ -136,7 +139,7 @@ function unitsLineInsertion(result: NoteResult): number {
     }
     return at >= 0 ? at : node.line;
   }
-  return at >= 0 ? at : lines.length;
+  return at >= 0 ? at : 0;
 }
 
 /**
