@@ -22,6 +22,7 @@ const fieldSchema = z
     bare: z.enum(['canonical', 'gas', 'fraction-or-percent']).optional(),
     hard: bounds.optional(),
     soft: bounds.optional(),
+    doubt: bounds.optional(),
     boundsSource: z.string().min(10).optional(),
     loinc: z.object({ code: z.string().regex(/^\d{1,6}-\d$/), display: z.string().min(3), fromMemory: z.boolean().optional() }).strict().optional(),
     words: z.record(z.string(), z.string()).optional(),
@@ -45,6 +46,14 @@ describe('field registry', () => {
     if (field.hard && field.soft) {
       if (field.soft.min !== undefined) expect(field.soft.min).toBeGreaterThanOrEqual(field.hard.min ?? -Infinity);
       if (field.soft.max !== undefined) expect(field.soft.max).toBeLessThanOrEqual(field.hard.max ?? Infinity);
+    }
+    if (field.doubt) {
+      // A doubt window widens the soft bounds (never narrows them) inside the hard ones.
+      expect(field.soft, 'a doubt window widens soft bounds').toBeDefined();
+      expect(field.doubt.min ?? -Infinity).toBeLessThanOrEqual(field.soft?.min ?? -Infinity);
+      expect(field.doubt.max ?? Infinity).toBeGreaterThanOrEqual(field.soft?.max ?? Infinity);
+      expect(field.doubt.min ?? Infinity).toBeGreaterThanOrEqual(field.hard?.min ?? -Infinity);
+      expect(field.doubt.max ?? -Infinity).toBeLessThanOrEqual(field.hard?.max ?? Infinity);
     }
   });
 

@@ -118,14 +118,29 @@ describe('reading units', () => {
     expect(codes('@ 08:00\nlabs albumin 31 g/L, hb 11.2')).toEqual([]);
   });
 
+  it('never drops a critical value as "probably the other unit": a bare PaO2 of 20–30 mmHg or PaCO2 of 150–200 mmHg is read as written and flagged as unusual (our convention: doubting such values would take them out of the hypoxaemia and hypercapnia readings)', () => {
+    const low = checkNote('@ 08:00\noxygen room air\nabg ph 7.20, pco2 60, po2 28, hco3 22.6');
+    expect(low.findings.filter((f) => f.severity !== 'information').map((f) => f.code)).toEqual(['PN302']);
+    expect(low.analysis.timeline.timepoints[0]?.values.get('pao2')?.stated.usable).toBe(true);
+    expect(low.findings.find((f) => f.code === 'PN410')?.message).toMatch(/^PaO2 28 mmHg: consistent with severe hypoxaemia/);
+    expect(low.findings.find((f) => f.code === 'PN412')?.message).toMatch(/type 2/);
+    // In a kPa note, a bare PaCO2 of 21 kPa (158 mmHg) is severe hypercapnia, not mmHg.
+    const high = checkNote('units gas kPa\n@ 08:00\noxygen venturi, fio2 0.4\nabg ph 7.05, pco2 21, po2 9, hco3 43');
+    expect(high.findings.filter((f) => f.code === 'PN204')).toEqual([]);
+    expect(high.findings.find((f) => f.code === 'PN411')?.message).toMatch(/consistent with hypercapnia/);
+    // Below 20 mmHg a bare PaO2 is doubted still: 9 reads as kPa (68 mmHg).
+    expect(codes('@ 08:00\nabg po2 9')).toEqual(['PN204']);
+  });
+
   it('does not flag real gases measured at extreme altitude', () => {
     // Arterial samples at 8,400 m on Everest: PaO2 about 19–30 mmHg, PaCO2 about 10–16 mmHg,
     // pH up to about 7.6 (Grocott MPW et al., "Arterial blood gases and oxygen content in climbers
     // on Mount Everest", NEJM 2009;360:140–149 — values from memory).
     const note = 'place altitude 8400 m\n@ 12:00\nabg ph 7.53, pco2 13.3, po2 24.6\n@ 12:30\nabg ph 7.60, pco2 10.3, po2 19.1';
     expect(codes(note)).toEqual([]);
-    // The same bare numbers at sea level read more naturally as kPa, and Pneumark says so.
-    expect(codes('place altitude 0 m\n@ 12:00\nabg ph 7.53, pco2 13.3, po2 24.6')).toEqual(['PN204', 'PN204']);
+    // The same bare numbers at sea level: PaCO2 13.3 reads more naturally as kPa, and Pneumark says
+    // so; PaO2 24.6 is critical but real in mmHg, so it is read as written and flagged as unusual.
+    expect(codes('place altitude 0 m\n@ 12:00\nabg ph 7.53, pco2 13.3, po2 24.6')).toEqual(['PN204', 'PN302']);
     // With the unit written, they are unusual at sea level.
     expect(codes('place altitude 0 m\n@ 12:00\nabg ph 7.53, pco2 13.3 mmHg, po2 24.6 mmHg')).toEqual(['PN302', 'PN302']);
   });

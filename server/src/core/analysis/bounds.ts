@@ -23,6 +23,19 @@ export function softBoundsAt(field: FieldDef, barometricMmhg: number | null): Bo
   return soft;
 }
 
+/**
+ * Where a bare number is read in the unit in force without doubt (see `FieldDef.doubt`): the
+ * field's doubt window, else its soft bounds, with the same waiver at low barometric pressure.
+ */
+export function doubtBoundsAt(field: FieldDef, barometricMmhg: number | null): Bounds | undefined {
+  const doubt = field.doubt;
+  if (!doubt) return softBoundsAt(field, barometricMmhg);
+  if (barometricMmhg !== null && barometricMmhg < LOW_PRESSURE_WAIVER_MMHG && WAIVED_AT_ALTITUDE.has(field.id)) {
+    return doubt.max === undefined ? {} : { max: doubt.max };
+  }
+  return doubt;
+}
+
 export function within(value: number, bounds: Bounds | undefined): boolean {
   if (!bounds) return true;
   if (bounds.min !== undefined && value < bounds.min) return false;

@@ -9,7 +9,7 @@ import { convert, unitById, unitsForSpelling, type UnitDef } from '../fields/uni
 import type { ItemNode, LineFix, PairValue } from '../syntax/tree';
 import { formatNumber } from '../util/format';
 import { closest, editDistance } from '../util/suggest';
-import { softBoundsAt, within, type BoundsContext } from './bounds';
+import { doubtBoundsAt, softBoundsAt, within, type BoundsContext } from './bounds';
 import type { StatedValue } from './model';
 import type { ReadIssue } from './read-issues';
 
@@ -177,14 +177,15 @@ function bareUnit(field: FieldDef, written: number, ctx: ReadContext, canonical:
 /** A unit (other than the one assumed) in which a bare number would be ordinary. */
 function otherUnitLikely(field: FieldDef, canonicalValue: number, written: number, readUnit: UnitDef, canonical: UnitDef, ctx: ReadContext): UnitDef | null {
   if (field.bare === 'fraction-or-percent') return null;
-  const soft = softBoundsAt(field, ctx.barometricMmhg) ?? field.hard;
-  if (!soft || within(canonicalValue, soft)) return null;
+  const plausible = doubtBoundsAt(field, ctx.barometricMmhg) ?? field.hard;
+  if (!plausible || within(canonicalValue, plausible)) return null;
   for (const id of field.units ?? []) {
     if (id === readUnit.id) continue;
     const alt = unitById(id);
     if (!alt) continue;
     const asAlt = convert(written, alt, canonical);
-    if (asAlt !== null && within(asAlt, soft)) return alt;
+    // Ordinary in the other unit: within the soft bounds there (not just plausible).
+    if (asAlt !== null && within(asAlt, softBoundsAt(field, ctx.barometricMmhg) ?? plausible)) return alt;
   }
   return null;
 }

@@ -99,8 +99,8 @@ export const unitNotAllowed = readCheck('PN203', 'unit-not-allowed', 'Unit not a
   fix: 'Write a unit the field takes, or none.',
 });
 
-export const otherUnitLikely = readCheck('PN204', 'other-unit-likely', 'Value reads as another unit', 'warning', ['units', 'plausibility'], 'common practice, no source: the soft bounds of the field registry', {
-  fires: 'A value written without a unit is implausible in the unit in force but ordinary in another unit the field takes (po2 9.1 read in mmHg looks like kPa; temp 101.2 read in °C looks like °F). The value is not used in calculations until the unit is written.',
+export const otherUnitLikely = readCheck('PN204', 'other-unit-likely', 'Value reads as another unit', 'warning', ['units', 'plausibility'], 'common practice, no source: the soft bounds of the field registry, widened for PaO2 and PaCO2 (our convention)', {
+  fires: 'A value written without a unit is implausible in the unit in force but ordinary in another unit the field takes (po2 9.1 read in mmHg looks like kPa; temp 101.2 read in °C looks like °F). The value is not used in calculations until the unit is written. A critical value that is real in the unit in force is never doubted: a bare PaO2 of 20–30 mmHg or PaCO2 of 150–200 mmHg is read as written and flagged as unusual (PN302) instead, so it stays in the readings.',
   example: 'abg po2 9.1',
   fix: 'Write the unit (`po2 9.1 kPa`), convert the value, or set `units gas kPa` for the note.',
 });

@@ -47,6 +47,13 @@ export interface FieldDef {
   readonly bare?: 'canonical' | 'gas' | 'fraction-or-percent';
   readonly hard?: Bounds;
   readonly soft?: Bounds;
+  /**
+   * Where a bare number is plausible enough to be read in the unit in force rather than doubted
+   * (PN204) and kept out of calculations; the soft bounds when not given. Wider than the soft
+   * bounds where a value outside them is rare but real and must not vanish from the readings:
+   * a PaO2 of 25 mmHg is critical, not a kPa value.
+   */
+  readonly doubt?: Bounds;
   readonly boundsSource?: string;
   readonly loinc?: LoincCode;
   /** For word fields: the words accepted (lower case), mapped to their canonical spelling. */
@@ -107,8 +114,8 @@ const ROWS: readonly FieldDef[] = [
 
   // ── arterial gas ──────────────────────────────────────────────────────
   { id: 'ph', label: 'pH (arterial)', short: 'pH', description: 'Arterial pH.', sections: ['abg'], aliases: ['ph'], kind: 'number', dimension: 'ph', unit: 'ph', units: ['ph'], hard: { min: 6.3, max: 8.0 }, soft: { min: 6.8, max: 7.8 }, boundsSource: `${CP}; survival near pH 6.5 has been reported, and a calculated arterial pH near 7.7 on the summit of Mount Everest (West JB et al., J Appl Physiol 1983, from memory)`, loinc: { code: '2744-1', display: 'pH of Arterial blood' }, decimals: 2 },
-  { id: 'paco2', label: 'PaCO2', short: 'PaCO2', description: 'Arterial partial pressure of carbon dioxide.', sections: ['abg'], aliases: ['pco2', 'paco2'], kind: 'number', dimension: 'gas-pressure', unit: 'mmHg', units: ['mmHg', 'kPa'], bare: 'gas', hard: { min: 5, max: 400 }, soft: { min: 15, max: 150 }, boundsSource: `${CP}; below the soft minimum is expected at extreme altitude (mean 13.3 mmHg at 8,400 m: Grocott MPW et al., NEJM 2009;360:140–149, from memory), so the soft minimum is waived where barometric pressure is below 500 mmHg`, loinc: { code: '2019-8', display: 'Carbon dioxide [Partial pressure] in Arterial blood' }, decimals: 0 },
-  { id: 'pao2', label: 'PaO2', short: 'PaO2', description: 'Arterial partial pressure of oxygen.', sections: ['abg'], aliases: ['po2', 'pao2'], kind: 'number', dimension: 'gas-pressure', unit: 'mmHg', units: ['mmHg', 'kPa'], bare: 'gas', hard: { min: 10, max: 2500 }, soft: { min: 30, max: 700 }, boundsSource: `${CP}; values near 20–25 mmHg were measured at 8,400 m (Grocott MPW et al., NEJM 2009, from memory), so the soft minimum is waived where barometric pressure is below 500 mmHg; the hard maximum allows hyperbaric oxygen`, loinc: { code: '2703-7', display: 'Oxygen [Partial pressure] in Arterial blood' }, decimals: 0 },
+  { id: 'paco2', label: 'PaCO2', short: 'PaCO2', description: 'Arterial partial pressure of carbon dioxide.', sections: ['abg'], aliases: ['pco2', 'paco2'], kind: 'number', dimension: 'gas-pressure', unit: 'mmHg', units: ['mmHg', 'kPa'], bare: 'gas', hard: { min: 5, max: 400 }, soft: { min: 15, max: 150 }, doubt: { min: 15, max: 200 }, boundsSource: `${CP}; below the soft minimum is expected at extreme altitude (mean 13.3 mmHg at 8,400 m: Grocott MPW et al., NEJM 2009;360:140–149, from memory), so the soft minimum is waived where barometric pressure is below 500 mmHg; a bare PaCO2 is doubted as the other unit only above 200 mmHg (150–200 mmHg is seen in severe hypercapnia and must stay in the readings; our convention)`, loinc: { code: '2019-8', display: 'Carbon dioxide [Partial pressure] in Arterial blood' }, decimals: 0 },
+  { id: 'pao2', label: 'PaO2', short: 'PaO2', description: 'Arterial partial pressure of oxygen.', sections: ['abg'], aliases: ['po2', 'pao2'], kind: 'number', dimension: 'gas-pressure', unit: 'mmHg', units: ['mmHg', 'kPa'], bare: 'gas', hard: { min: 10, max: 2500 }, soft: { min: 30, max: 700 }, doubt: { min: 20, max: 700 }, boundsSource: `${CP}; values near 20–25 mmHg were measured at 8,400 m (Grocott MPW et al., NEJM 2009, from memory), so the soft minimum is waived where barometric pressure is below 500 mmHg; the hard maximum allows hyperbaric oxygen; a bare PaO2 is doubted as kPa only below 20 mmHg (20–30 mmHg is seen in critical hypoxaemia and must stay in the readings; our convention)`, loinc: { code: '2703-7', display: 'Oxygen [Partial pressure] in Arterial blood' }, decimals: 0 },
   { id: 'hco3', label: 'HCO3 (arterial)', short: 'HCO3', description: 'Arterial bicarbonate as reported by the gas analyser.', sections: ['abg'], aliases: ['hco3', 'bicarb'], kind: 'number', dimension: 'substance-concentration', unit: 'mmol/L', units: ['mmol/L', 'mEq/L'], hard: { min: 1, max: 80 }, soft: { min: 5, max: 50 }, boundsSource: CP, loinc: { code: '1960-4', display: 'Bicarbonate [Moles/volume] in Arterial blood' }, decimals: 1 },
   { id: 'base_excess', label: 'Base excess', short: 'BE', description: 'Base excess (negative for a base deficit).', sections: ['abg', 'vbg'], aliases: ['be', 'sbe', 'base_excess'], kind: 'number', dimension: 'substance-concentration', unit: 'mmol/L', units: ['mmol/L', 'mEq/L'], hard: { min: -50, max: 50 }, soft: { min: -25, max: 25 }, boundsSource: CP, loinc: { code: '1925-7', display: 'Base excess in Arterial blood by calculation' }, decimals: 1 },
   { id: 'sao2', label: 'SaO2', short: 'SaO2', description: 'Arterial oxygen saturation measured by co-oximetry.', sections: ['abg'], aliases: ['sao2', 'so2'], kind: 'number', dimension: 'percent', unit: '%sat', units: ['%sat'], hard: { min: 0, max: 100 }, soft: { min: 50 }, boundsSource: CP, loinc: { code: '2708-6', display: 'Oxygen saturation in Arterial blood' }, decimals: 0 },
@@ -139,7 +146,7 @@ const ROWS: readonly FieldDef[] = [
 function oneShape(f: FieldDef): FieldDef {
   return {
     id: f.id, label: f.label, short: f.short, description: f.description, sections: f.sections, aliases: f.aliases, kind: f.kind,
-    dimension: f.dimension, unit: f.unit, units: f.units, bare: f.bare, hard: f.hard && oneBounds(f.hard), soft: f.soft && oneBounds(f.soft),
+    dimension: f.dimension, unit: f.unit, units: f.units, bare: f.bare, hard: f.hard && oneBounds(f.hard), soft: f.soft && oneBounds(f.soft), doubt: f.doubt && oneBounds(f.doubt),
     boundsSource: f.boundsSource, loinc: f.loinc, words: f.words, openWords: f.openWords, reading: f.reading, decimals: f.decimals,
   };
 }
