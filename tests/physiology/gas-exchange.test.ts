@@ -196,6 +196,8 @@ describe('null safety (fast-check)', () => {
   const cases = {
     alveolarPo2Simplified: totality(fc.tuple(d, d, d), gas.alveolarPo2Simplified),
     alveolarPo2Full: totality(fc.tuple(d, d, d, d), gas.alveolarPo2Full),
+    alveolarPo2SimplifiedSigned: totality(fc.tuple(d, d, d), gas.alveolarPo2SimplifiedSigned),
+    alveolarPo2FullSigned: totality(fc.tuple(d, d, d, d), gas.alveolarPo2FullSigned),
     aaGradient: totality(fc.tuple(d, d), gas.aaGradient),
     aaGradientUpperNormal: totality(fc.tuple(d, rules), gas.aaGradientUpperNormal),
     arterialAlveolarRatio: totality(fc.tuple(d, d), gas.arterialAlveolarRatio),

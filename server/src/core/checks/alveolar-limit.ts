@@ -32,9 +32,13 @@ export const pao2AboveAlveolar = defineCheck({
       const related = fio2 && fio2.origin.kind !== 'default' && fio2.origin.kind !== 'derived'
         ? [{ range: toRange(fio2.origin.line, fio2.origin.span), message: `FiO2 ${formatNumber(fio2.value, 2)} in force (${describeInputOrigin(fio2.origin)})` }]
         : [];
+      const allowed = fio2 ? `FiO2 ${formatNumber(fio2.value, 2)}` : 'the FiO2';
       ctx.report({
         range: toRange(pao2.stated.line, pao2.stated.item.value?.span ?? pao2.stated.item.span),
-        message: `PaO2 ${formatNumber(pao2.stated.value, 0)} mmHg is above the alveolar PO2 of ${formatNumber(alveolar.value, 0)} mmHg that ${fio2 ? `FiO2 ${formatNumber(fio2.value, 2)}` : 'the FiO2'} allows here: check the FiO2, the unit, a venous sample or an air bubble.`,
+        message: alveolar.value < 0
+          // The alveolar gas equation gives less than nothing: the inputs contradict each other whatever the PaO2.
+          ? `No PaO2 is possible here: with ${allowed}, the barometric pressure and the PaCO2 in force, the alveolar PO2 comes out at ${formatNumber(alveolar.value, 0)} mmHg. Check the FiO2, the altitude or pressure, and the units of PaCO2 and PaO2.`
+          : `PaO2 ${formatNumber(pao2.stated.value, 0)} mmHg is above the alveolar PO2 of ${formatNumber(alveolar.value, 0)} mmHg that ${allowed} allows here: check the FiO2, the unit, a venous sample or an air bubble.`,
         related,
       });
     }

@@ -4,8 +4,8 @@ import {
   SOURCES,
   aaGradient,
   aaGradientUpperNormal,
-  alveolarPo2Full,
-  alveolarPo2Simplified,
+  alveolarPo2FullSigned,
+  alveolarPo2SimplifiedSigned,
   arterialAlveolarRatio,
   oxygenSaturationIndex,
   oxygenationIndex,
@@ -38,12 +38,14 @@ export const pao2Alveolar = defineDerived({
     if (c.settings.alveolarEquation === 'full') {
       const fio2 = c.fio2();
       if (!fio2) return c.missing([fio2, c.fio2Need()]);
-      return c.value(alveolarPo2Full(fio2.value, pio2.value, paco2.value, rq.value), [pio2, paco2, fio2, rq], {
+      const full = alveolarPo2FullSigned(fio2.value, pio2.value, paco2.value, rq.value);
+      return c.value(full, [pio2, paco2, fio2, rq], {
         formula: '{PiO2} − {PaCO2} × ({FiO2} + (1 − {FiO2}) ÷ {RQ})',
-        notes: ['full alveolar gas equation (setting)'],
+        notes: ['full alveolar gas equation (setting)', ...negativeNote(full)],
       });
     }
-    return c.value(alveolarPo2Simplified(pio2.value, paco2.value, rq.value), [pio2, paco2, rq], { notes: ['simplified alveolar gas equation'] });
+    const simplified = alveolarPo2SimplifiedSigned(pio2.value, paco2.value, rq.value);
+    return c.value(simplified, [pio2, paco2, rq], { notes: ['simplified alveolar gas equation', ...negativeNote(simplified)] });
   },
 });
 
@@ -61,6 +63,7 @@ export const aaGradientDef = defineDerived({
     const pA = c.derived('pao2_alveolar', 'PAO2');
     const pa = c.field('pao2', 'PaO2');
     if (!pA || !pa) return c.missing([pa, 'po2'], [pA, c.lacking('pao2_alveolar')]);
+    if (pA.value < 0) return { kind: 'na', reason: `the alveolar PO2 comes out negative (${Math.round(pA.value)} mmHg): this FiO2, pressure and PaCO2 cannot go together (see PN401)` };
     const g = aaGradient(pA.value, pa.value);
     if (g === null) return c.value(null, []);
     if (g < -ALVEOLAR_ROUNDING_MMHG) return { kind: 'na', reason: `PaO2 ${Math.round(pa.value)} mmHg is above the alveolar PO2 ${Math.round(pA.value)} mmHg that the stated FiO2 and pressure allow (see PN401)` };
@@ -68,6 +71,14 @@ export const aaGradientDef = defineDerived({
     return c.value(g, [pA, pa]);
   },
 });
+
+/**
+ * A negative alveolar PO2 is kept (not dropped as out of domain): it is how the note's FiO2,
+ * pressure and PaCO2 contradict each other, and PN401 reports it.
+ */
+function negativeNote(alveolar: number | null): string[] {
+  return alveolar !== null && alveolar < 0 ? ['negative: no PaO2 is possible with this FiO2, pressure and PaCO2 (see PN401)'] : [];
+}
 
 const AGE_RULE_TEXT = {
   'age-over-4-plus-4': '{age} ÷ 4 + 4',

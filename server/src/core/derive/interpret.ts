@@ -47,6 +47,9 @@ export function interpret(c: DeriveContext, settings: Settings): Interpretation[
   const hypercapnic = paco2 !== null && paco2.value > settings.hypercapniaAboveMmhg;
   const fio2 = c.fio2();
   const onOxygen = fio2 !== null && fio2.value > 0.21 + 1e-9;
+  // An oxygen device in force whose FiO2 is not stated (a cannula, a mask): oxygen, amount unknown.
+  const device = fio2 === null ? c.word('device')?.word ?? null : null;
+  const oxygenDevice = device !== null && device !== 'room air' ? device : null;
 
   // Oxygenation
   if (pao2) {
@@ -92,7 +95,10 @@ export function interpret(c: DeriveContext, settings: Settings): Interpretation[
     if (hypoxaemic && hypercapnic) push('respiratory-failure', 'Consistent with type 2 (hypercapnic) respiratory failure: hypoxaemia with hypercapnia.', ['pao2', 'paco2']);
     else if (hypoxaemic) push('respiratory-failure', 'Consistent with type 1 (hypoxaemic) respiratory failure: hypoxaemia with normal or low PaCO2.', ['pao2', 'paco2']);
     else if (hypercapnic && onOxygen) push('respiratory-failure', `Consistent with type 2 (hypercapnic) respiratory failure, with PaO2 held up by supplemental oxygen (FiO2 ${formatNumber(fio2.value, 2)}).`, ['pao2', 'paco2', 'fio2']);
-    else if (hypercapnic) push('respiratory-failure', 'Hypercapnia without hypoxaemia: not consistent with respiratory failure by the PaO2 criterion.', ['pao2', 'paco2'], false);
+    else if (hypercapnic && oxygenDevice !== null) push('respiratory-failure', `Consistent with type 2 (hypercapnic) respiratory failure, with PaO2 held up by supplemental oxygen (${oxygenDevice}, FiO2 not stated).`, ['pao2', 'paco2', 'device']);
+    // FiO2 unknown: oxygen may be holding the PaO2 up, so no negative statement is made.
+    else if (hypercapnic && fio2 === null) push('respiratory-failure', `Hypercapnia with a PaO2 above ${n0(settings.hypoxaemiaBelowMmhg)} mmHg and no FiO2 stated: on supplemental oxygen this would be consistent with type 2 (hypercapnic) respiratory failure; add ${c.fio2Need()} to tell.`, ['pao2', 'paco2']);
+    else if (hypercapnic) push('respiratory-failure', 'Hypercapnia without hypoxaemia on air: not consistent with respiratory failure by the PaO2 criterion.', ['pao2', 'paco2', 'fio2'], false);
   }
 
   // Mechanism of hypoxaemia
@@ -113,6 +119,10 @@ function mechanism(c: DeriveContext, settings: Settings, line: number | null): I
   const gradient = c.derivedValue('aa_gradient');
   const upper = c.derivedValue('aa_gradient_upper_normal');
   const paco2 = c.field('paco2');
+  if (pio2 && paco2 && !gradient) {
+    // Everything is stated, yet no gradient: the PaO2 is above the alveolar PO2, or that comes out negative.
+    return [{ topic: 'hypoxaemia-mechanism', text: 'Mechanism of hypoxaemia not assessed: the FiO2, pressure, PaCO2 and PaO2 stated cannot go together, so there is no A–a gradient (see PN401).', basis: ['pio2', 'paco2', 'pao2'], line, notable: false }];
+  }
   if (!pio2 || !gradient || !paco2) {
     const need = !paco2 ? 'pco2' : c.fio2Need();
     return [{ topic: 'hypoxaemia-mechanism', text: `Mechanism of hypoxaemia not assessed: add ${need} to get the A–a gradient.`, basis: [], line, notable: false }];

@@ -71,9 +71,18 @@ export function alveolarPo2Simplified(
   paco2Mmhg: number,
   rq: number = DEFAULT_RESPIRATORY_QUOTIENT,
 ): number | null {
+  const pAo2 = alveolarPo2SimplifiedSigned(pio2Mmhg, paco2Mmhg, rq);
+  return pAo2 === null || pAo2 < 0 ? null : pAo2;
+}
+
+/**
+ * The simplified alveolar gas equation as computed, negative results included: a negative
+ * alveolar PO2 says the PiO2 and PaCO2 stated cannot go together (callers report it).
+ * `null` unless PiO2 > 0, PaCO2 ≥ 0, R > 0. Source: `alveolar-gas-equation`.
+ */
+export function alveolarPo2SimplifiedSigned(pio2Mmhg: number, paco2Mmhg: number, rq: number = DEFAULT_RESPIRATORY_QUOTIENT): number | null {
   if (!allFinite(pio2Mmhg, paco2Mmhg) || pio2Mmhg <= 0 || paco2Mmhg < 0 || !validRq(rq)) return null;
-  const pAo2 = pio2Mmhg - paco2Mmhg / rq;
-  return pAo2 < 0 ? null : finiteOrNull(pAo2);
+  return finiteOrNull(pio2Mmhg - paco2Mmhg / rq);
 }
 
 /**
@@ -88,10 +97,18 @@ export function alveolarPo2Full(
   paco2Mmhg: number,
   rq: number = DEFAULT_RESPIRATORY_QUOTIENT,
 ): number | null {
+  const pAo2 = alveolarPo2FullSigned(fio2, pio2Mmhg, paco2Mmhg, rq);
+  return pAo2 === null || pAo2 < 0 ? null : pAo2;
+}
+
+/**
+ * The full alveolar gas equation as computed, negative results included (see
+ * `alveolarPo2SimplifiedSigned`). Source: `alveolar-gas-equation`.
+ */
+export function alveolarPo2FullSigned(fio2: number, pio2Mmhg: number, paco2Mmhg: number, rq: number = DEFAULT_RESPIRATORY_QUOTIENT): number | null {
   if (!isFio2Fraction(fio2) || !allFinite(pio2Mmhg, paco2Mmhg) || !validRq(rq)) return null;
   if (pio2Mmhg <= 0 || paco2Mmhg < 0) return null;
-  const pAo2 = pio2Mmhg - paco2Mmhg * (fio2 + (1 - fio2) / rq);
-  return pAo2 < 0 ? null : finiteOrNull(pAo2);
+  return finiteOrNull(pio2Mmhg - paco2Mmhg * (fio2 + (1 - fio2) / rq));
 }
 
 /**

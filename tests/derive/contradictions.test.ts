@@ -1,0 +1,54 @@
+// Values that cannot go together are reported, never passed over in silence, and a missing FiO2
+// never produces a negative reading. Worked numbers use the simplified alveolar gas equation,
+// PAO2 = FiO2 × (PB − 47) − PaCO2 ÷ 0.8 (Fenn, Rahn & Otis 1946; Riley & Cournand 1949 — from
+// memory), and West's model atmosphere for PB from altitude (West JB, J Appl Physiol
+// 1996;81:1850–1854 — from memory): about 444 mmHg at 4,550 m.
+import { describe, expect, it } from 'vitest';
+import { checkNote } from '../../server/src/core/check-note';
+import { alveolarPo2Simplified, alveolarPo2SimplifiedSigned } from '../../server/src/core/physiology';
+import { derivation, derived, readings } from './helpers';
+
+describe('an alveolar PO2 that comes out negative', () => {
+  const note = 'place altitude 4550 m\n@ 08:00\noxygen room air\nabg 7.10/75/50/22.5';
+
+  it('is computed and kept: 0.21 × (444 − 47) − 75 ÷ 0.8 ≈ −10 mmHg', () => {
+    expect(alveolarPo2SimplifiedSigned(0.21 * (444 - 47), 75)).toBeCloseTo(83.37 - 93.75, 2);
+    // The plain form stays total over the physical domain: null for a negative alveolar PO2.
+    expect(alveolarPo2Simplified(0.21 * (444 - 47), 75)).toBeNull();
+    const pA = derived(note, 'pao2_alveolar');
+    expect(pA.value).toBeLessThan(-5);
+    expect(pA.value).toBeGreaterThan(-15);
+  });
+
+  it('is reported by PN401 as values that cannot go together, whatever the PaO2', () => {
+    const f = checkNote(note).findings.filter((x) => x.code === 'PN401');
+    expect(f).toHaveLength(1);
+    expect(f[0]?.message).toMatch(/^No PaO2 is possible here: with FiO2 0\.21, the barometric pressure and the PaCO2 in force, the alveolar PO2 comes out at -1\d mmHg\./);
+  });
+
+  it('gives no A–a gradient and says why, instead of asking for an FiO2 that is there', () => {
+    const d = derivation(note);
+    expect(d.notApplicable.find((n) => n.id === 'aa_gradient')?.reason).toMatch(/alveolar PO2 comes out negative/);
+    expect(readings(note)['hypoxaemia-mechanism']).toMatch(/^Mechanism of hypoxaemia not assessed: the FiO2, pressure, PaCO2 and PaO2 stated cannot go together/);
+    expect(readings(note)['hypoxaemia-mechanism']).not.toMatch(/add fio2/);
+  });
+});
+
+describe('hypercapnia without hypoxaemia (hypoxaemia PaO2 < 60, hypercapnia PaCO2 > 50 mmHg: common practice, no source)', () => {
+  it('makes no negative statement when no FiO2 is stated: oxygen may hold the PaO2 up', () => {
+    // On air at PB 760, PAO2 = 0.21 × 713 − 60 ÷ 0.8 ≈ 75 mmHg: a PaO2 of 90 would need oxygen.
+    const r = readings('@ 08:00\nabg 7.24/60/90/26');
+    expect(r['respiratory-failure']).toMatch(/^Hypercapnia with a PaO2 above 60 mmHg and no FiO2 stated: on supplemental oxygen this would be consistent with type 2 \(hypercapnic\) respiratory failure; add fio2 \(or an oxygen line\) to tell\.$/);
+    expect(r['respiratory-failure']).not.toMatch(/not consistent/);
+  });
+
+  it('reads an oxygen device without a stated FiO2 as oxygen holding the PaO2 up', () => {
+    const r = readings('@ 08:00\noxygen cannula 4 L/min\nabg 7.26/72/81/31');
+    expect(r['respiratory-failure']).toBe('Consistent with type 2 (hypercapnic) respiratory failure, with PaO2 held up by supplemental oxygen (cannula, FiO2 not stated).');
+  });
+
+  it('says "not consistent with respiratory failure" only on air', () => {
+    const r = readings('@ 08:00\noxygen room air\nabg 7.33/52/70/27');
+    expect(r['respiratory-failure']).toBe('Hypercapnia without hypoxaemia on air: not consistent with respiratory failure by the PaO2 criterion.');
+  });
+});
