@@ -1,7 +1,7 @@
 /** Ventilator settings beyond the usual lung-protective limits. */
 import { SOURCES } from '../physiology';
 import { toRange } from '../syntax/tree';
-import { formatNumber } from '../util/format';
+import { formatAgainst } from '../util/format';
 import { derivedValueOf } from '../derive/registry';
 import { defineCheck, type TimepointContext } from './check';
 
@@ -33,7 +33,7 @@ export const tidalVolumeHigh = defineCheck({
   },
   source: SOURCES['ardsnet-2000'],
   runTimepoint(ctx) {
-    derivedAbove(ctx, 'vt_per_kg_pbw', VT_PER_KG_LIMIT, 'vt', (v) => `Tidal volume is ${formatNumber(v, 1)} mL/kg predicted body weight, above the ${VT_PER_KG_LIMIT} mL/kg top of the lung-protective range.`);
+    derivedAbove(ctx, 'vt_per_kg_pbw', VT_PER_KG_LIMIT, 'vt', (v) => `Tidal volume is ${formatAgainst(v, 1, VT_PER_KG_LIMIT)} mL/kg predicted body weight, above the ${VT_PER_KG_LIMIT} mL/kg top of the lung-protective range.`);
   },
 });
 
@@ -53,7 +53,7 @@ export const plateauHigh = defineCheck({
     if (ctx.timepoint.values.originOf('plateau') !== 'here') return;
     const plat = ctx.timepoint.values.get('plateau');
     if (!plat || plat.origin.kind !== 'here' || !plat.stated.usable || plat.stated.value === null || plat.stated.value <= PLATEAU_LIMIT_CMH2O) return;
-    ctx.report({ range: toRange(plat.stated.line, plat.stated.item.span), message: `Plateau pressure ${formatNumber(plat.stated.value, 0)} cmH2O is above ${PLATEAU_LIMIT_CMH2O} cmH2O.` });
+    ctx.report({ range: toRange(plat.stated.line, plat.stated.item.span), message: `Plateau pressure ${formatAgainst(plat.stated.value, 0, PLATEAU_LIMIT_CMH2O)} cmH2O is above ${PLATEAU_LIMIT_CMH2O} cmH2O.` });
   },
 });
 
@@ -70,6 +70,6 @@ export const drivingPressureHigh = defineCheck({
   },
   source: `${SOURCES['amato-2015']}; the 15 cmH2O flag is common practice, no source`,
   runTimepoint(ctx) {
-    derivedAbove(ctx, 'driving_pressure', DRIVING_PRESSURE_LIMIT_CMH2O, 'plateau', (v) => `Driving pressure is ${formatNumber(v, 0)} cmH2O (plateau − PEEP), above ${DRIVING_PRESSURE_LIMIT_CMH2O} cmH2O.`);
+    derivedAbove(ctx, 'driving_pressure', DRIVING_PRESSURE_LIMIT_CMH2O, 'plateau', (v) => `Driving pressure is ${formatAgainst(v, 0, DRIVING_PRESSURE_LIMIT_CMH2O)} cmH2O (plateau − PEEP), above ${DRIVING_PRESSURE_LIMIT_CMH2O} cmH2O.`);
   },
 });

@@ -7,7 +7,7 @@
 import { BERLIN_BAND_SEVERITY, berlinOxygenationBand, type AcidBaseClassification, type AcidBaseDisorder } from '../physiology';
 import { forBand } from '../physiology/numeric';
 import type { Settings } from '../settings';
-import { formatNumber } from '../util/format';
+import { formatAgainst, formatNumber, formatShort, rangeAgainst } from '../util/format';
 import { classification } from './acid-base';
 import type { DeriveContext } from './context';
 import type { Interpretation } from './model';
@@ -25,7 +25,6 @@ export const AA_UPPER_NORMAL_NO_AGE_MMHG = 20;
 /** PEEP or CPAP (cmH2O) from which the Berlin oxygenation bands apply. */
 export const BERLIN_MIN_PEEP_CMH2O = 5;
 
-const n0 = (v: number) => formatNumber(v, 0);
 
 const DISORDER_WORDS: Readonly<Record<AcidBaseDisorder, string>> = {
   'metabolic-acidosis': 'metabolic acidosis',
@@ -54,15 +53,17 @@ export function interpret(c: DeriveContext, settings: Settings): Interpretation[
   // Oxygenation
   if (pao2) {
     const pf = c.derivedValue('pf_ratio');
+    // Numbers are shown with the decimals that keep them on their side of the thresholds named.
+    const hypoxaemiaAt = settings.hypoxaemiaBelowMmhg;
     if (hypoxaemic) {
       const grade = pao2.value < SEVERE_HYPOXAEMIA_MMHG ? 'severe' : 'moderate';
-      push('oxygenation', `PaO2 ${n0(pao2.value)} mmHg: consistent with ${grade} hypoxaemia (below ${n0(settings.hypoxaemiaBelowMmhg)} mmHg${grade === 'severe' ? `, and below ${SEVERE_HYPOXAEMIA_MMHG}` : ''})${onOxygen ? ` despite FiO2 ${formatNumber(fio2.value, 2)}` : ''}.`, ['pao2']);
+      push('oxygenation', `PaO2 ${formatAgainst(pao2.value, 0, hypoxaemiaAt, SEVERE_HYPOXAEMIA_MMHG)} mmHg: consistent with ${grade} hypoxaemia (below ${formatShort(hypoxaemiaAt)} mmHg${grade === 'severe' ? `, and below ${SEVERE_HYPOXAEMIA_MMHG}` : ''})${onOxygen ? ` despite FiO2 ${formatNumber(fio2.value, 2)}` : ''}.`, ['pao2']);
     } else if (onOxygen && pf && forBand(pf.value) <= 300) {
-      push('oxygenation', `PaO2 ${n0(pao2.value)} mmHg on FiO2 ${formatNumber(fio2.value, 2)} (P/F ${n0(pf.value)}): consistent with impaired oxygenation supported by oxygen.`, ['pao2', 'pf_ratio']);
+      push('oxygenation', `PaO2 ${formatAgainst(pao2.value, 0, hypoxaemiaAt)} mmHg on FiO2 ${formatNumber(fio2.value, 2)} (P/F ${formatAgainst(pf.value, 0, 300)}): consistent with impaired oxygenation supported by oxygen.`, ['pao2', 'pf_ratio']);
     } else if (pao2.value < LOW_NORMAL_PAO2_MMHG) {
-      push('oxygenation', `PaO2 ${n0(pao2.value)} mmHg: consistent with mildly reduced oxygenation, above the hypoxaemia threshold of ${n0(settings.hypoxaemiaBelowMmhg)} mmHg.`, ['pao2'], false);
+      push('oxygenation', `PaO2 ${formatAgainst(pao2.value, 0, hypoxaemiaAt, LOW_NORMAL_PAO2_MMHG)} mmHg: consistent with mildly reduced oxygenation, above the hypoxaemia threshold of ${formatShort(hypoxaemiaAt)} mmHg.`, ['pao2'], false);
     } else {
-      push('oxygenation', `PaO2 ${n0(pao2.value)} mmHg${onOxygen ? ` on FiO2 ${formatNumber(fio2.value, 2)}` : ''}: consistent with adequate arterial oxygenation.`, ['pao2'], false);
+      push('oxygenation', `PaO2 ${formatAgainst(pao2.value, 0, LOW_NORMAL_PAO2_MMHG)} mmHg${onOxygen ? ` on FiO2 ${formatNumber(fio2.value, 2)}` : ''}: consistent with adequate arterial oxygenation.`, ['pao2'], false);
     }
     // Berlin oxygenation band: only with PEEP or CPAP ≥ 5 cmH2O; an oxygenation band, never a diagnosis.
     const peep = c.peepLike();
@@ -72,7 +73,7 @@ export function interpret(c: DeriveContext, settings: Settings): Interpretation[
       const band = berlinOxygenationBand(pfForBand.value);
       if (band) {
         const words = band === 'pf-200-to-300' ? '200–300' : band === 'pf-100-to-200' ? '100–200' : '≤ 100';
-        push('oxygenation-band', `P/F ${n0(pfForBand.value)}${adjusted ? ' (adjusted for altitude)' : ''} with ${peep.name} ${n0(peep.value)} cmH2O: consistent with the ${words} oxygenation band of the Berlin definition (the band called ${BERLIN_BAND_SEVERITY[band]} there) — an oxygenation band, not a diagnosis.`, [adjusted ? 'pf_ratio_altitude_adjusted' : 'pf_ratio', peep.fieldId ?? 'peep']);
+        push('oxygenation-band', `P/F ${formatAgainst(pfForBand.value, 0, 100, 200, 300)}${adjusted ? ' (adjusted for altitude)' : ''} with ${peep.name} ${formatAgainst(peep.value, 0, BERLIN_MIN_PEEP_CMH2O)} cmH2O: consistent with the ${words} oxygenation band of the Berlin definition (the band called ${BERLIN_BAND_SEVERITY[band]} there) — an oxygenation band, not a diagnosis.`, [adjusted ? 'pf_ratio_altitude_adjusted' : 'pf_ratio', peep.fieldId ?? 'peep']);
       }
     }
   }
@@ -81,13 +82,13 @@ export function interpret(c: DeriveContext, settings: Settings): Interpretation[
   if (paco2) {
     const v = paco2.value;
     const text = v > settings.hypercapniaAboveMmhg
-      ? `consistent with hypercapnia (above ${n0(settings.hypercapniaAboveMmhg)} mmHg): ventilation is not clearing CO2`
+      ? `consistent with hypercapnia (above ${formatShort(settings.hypercapniaAboveMmhg)} mmHg): ventilation is not clearing CO2`
       : v > UPPER_NORMAL_PACO2_MMHG
-        ? `consistent with a mildly raised PaCO2, below the hypercapnia threshold of ${n0(settings.hypercapniaAboveMmhg)} mmHg`
+        ? `consistent with a mildly raised PaCO2, below the hypercapnia threshold of ${formatShort(settings.hypercapniaAboveMmhg)} mmHg`
         : v < settings.hypocapniaBelowMmhg
-          ? `consistent with hypocapnia (below ${n0(settings.hypocapniaBelowMmhg)} mmHg): ventilation above metabolic need`
+          ? `consistent with hypocapnia (below ${formatShort(settings.hypocapniaBelowMmhg)} mmHg): ventilation above metabolic need`
           : 'consistent with normal ventilation';
-    push('ventilation', `PaCO2 ${n0(v)} mmHg: ${text}.`, ['paco2'], v > settings.hypercapniaAboveMmhg || v < settings.hypocapniaBelowMmhg);
+    push('ventilation', `PaCO2 ${formatAgainst(v, 0, settings.hypercapniaAboveMmhg, UPPER_NORMAL_PACO2_MMHG, settings.hypocapniaBelowMmhg)} mmHg: ${text}.`, ['paco2'], v > settings.hypercapniaAboveMmhg || v < settings.hypocapniaBelowMmhg);
   }
 
   // Respiratory failure
@@ -97,7 +98,7 @@ export function interpret(c: DeriveContext, settings: Settings): Interpretation[
     else if (hypercapnic && onOxygen) push('respiratory-failure', `Consistent with type 2 (hypercapnic) respiratory failure, with PaO2 held up by supplemental oxygen (FiO2 ${formatNumber(fio2.value, 2)}).`, ['pao2', 'paco2', 'fio2']);
     else if (hypercapnic && oxygenDevice !== null) push('respiratory-failure', `Consistent with type 2 (hypercapnic) respiratory failure, with PaO2 held up by supplemental oxygen (${oxygenDevice}, FiO2 not stated).`, ['pao2', 'paco2', 'device']);
     // FiO2 unknown: oxygen may be holding the PaO2 up, so no negative statement is made.
-    else if (hypercapnic && fio2 === null) push('respiratory-failure', `Hypercapnia with a PaO2 above ${n0(settings.hypoxaemiaBelowMmhg)} mmHg and no FiO2 stated: on supplemental oxygen this would be consistent with type 2 (hypercapnic) respiratory failure; add ${c.fio2Need()} to tell.`, ['pao2', 'paco2']);
+    else if (hypercapnic && fio2 === null) push('respiratory-failure', `Hypercapnia with a PaO2 above ${formatShort(settings.hypoxaemiaBelowMmhg)} mmHg and no FiO2 stated: on supplemental oxygen this would be consistent with type 2 (hypercapnic) respiratory failure; add ${c.fio2Need()} to tell.`, ['pao2', 'paco2']);
     else if (hypercapnic) push('respiratory-failure', 'Hypercapnia without hypoxaemia on air: not consistent with respiratory failure by the PaO2 criterion.', ['pao2', 'paco2', 'fio2'], false);
   }
 
@@ -130,11 +131,13 @@ function mechanism(c: DeriveContext, settings: Settings, line: number | null): I
   const limit = upper?.value ?? AA_UPPER_NORMAL_NO_AGE_MMHG;
   const causes: string[] = [];
   const basis = ['pio2', 'aa_gradient', 'paco2'];
-  if (pio2.value < LOW_PIO2_MMHG) causes.push(`low inspired oxygen (PiO2 ${n0(pio2.value)} mmHg)`);
-  if (paco2.value > settings.hypercapniaAboveMmhg) causes.push(`hypoventilation (PaCO2 ${n0(paco2.value)} mmHg)`);
+  if (pio2.value < LOW_PIO2_MMHG) causes.push(`low inspired oxygen (PiO2 ${formatAgainst(pio2.value, 0, LOW_PIO2_MMHG)} mmHg)`);
+  if (paco2.value > settings.hypercapniaAboveMmhg) causes.push(`hypoventilation (PaCO2 ${formatAgainst(paco2.value, 0, settings.hypercapniaAboveMmhg)} mmHg)`);
   const raised = gradient.value > limit;
-  if (raised) causes.push(`a raised A–a gradient (${n0(gradient.value)} mmHg, above ${n0(limit)}): V/Q mismatch, shunt or a diffusion limit`);
-  const normalGradient = raised ? '' : ` The A–a gradient (${n0(gradient.value)} mmHg) is within the ${upper ? 'age-based ' : ''}normal of ${n0(limit)}${upper ? '' : ' (age unknown)'}.`;
+  const gradientShown = formatAgainst(gradient.value, 0, limit);
+  const limitShown = formatAgainst(limit, 0, gradient.value);
+  if (raised) causes.push(`a raised A–a gradient (${gradientShown} mmHg, above ${limitShown}): V/Q mismatch, shunt or a diffusion limit`);
+  const normalGradient = raised ? '' : ` The A–a gradient (${gradientShown} mmHg) is within the ${upper ? 'age-based ' : ''}normal of ${limitShown}${upper ? '' : ' (age unknown)'}.`;
   const onOxygen = (c.fio2()?.value ?? 0.21) > 0.21 + 1e-9;
   const caveat = onOxygen ? ' On supplemental oxygen the normal gradient is wider than the air-based limit.' : '';
   if (causes.length === 0) return [{ topic: 'hypoxaemia-mechanism', text: `Hypoxaemia without a low PiO2, hypercapnia or a raised A–a gradient: recheck the inputs.${normalGradient}${caveat}`, basis, line, notable: true }];
@@ -162,13 +165,16 @@ function acidBaseText(cls: AcidBaseClassification): string {
   const exp = cls.expected;
   const named = new Set<AcidBaseDisorder>();
   if (exp?.kind === 'respiratory-response') {
-    const range = `${n0(exp.range.low)}–${n0(exp.range.high)} mmHg`;
+    // The ends of a range are shown with the decimals that keep the observed value outside or inside it, as it is.
+    const o = exp.observed;
+    const range = `${rangeAgainst(exp.range.low, exp.range.high, 0, o)} mmHg`;
     if (cls.compensation === 'appropriate') parts[0] += `, with the expected respiratory response (PaCO2 ${range})`;
-    else if (exp.observed > exp.range.high) { parts.push(`PaCO2 ${n0(exp.observed)} is above the expected ${range}: suspect an added respiratory acidosis`); named.add('respiratory-acidosis'); }
-    else if (exp.observed < exp.range.low) { parts.push(`PaCO2 ${n0(exp.observed)} is below the expected ${range}: suspect an added respiratory alkalosis`); named.add('respiratory-alkalosis'); }
+    else if (o > exp.range.high) { parts.push(`PaCO2 ${formatAgainst(o, 0, exp.range.high)} is above the expected ${range}: suspect an added respiratory acidosis`); named.add('respiratory-acidosis'); }
+    else if (o < exp.range.low) { parts.push(`PaCO2 ${formatAgainst(o, 0, exp.range.low)} is below the expected ${range}: suspect an added respiratory alkalosis`); named.add('respiratory-alkalosis'); }
   } else if (exp?.kind === 'metabolic-response' && cls.compensation !== 'appropriate' && cls.compensation !== 'not-applicable') {
     const added = cls.additional.find((d) => d === 'metabolic-acidosis' || d === 'metabolic-alkalosis');
-    parts.push(`HCO3 ${formatNumber(exp.observed, 1)} is outside the expected ${n0(exp.acute.low)}–${n0(exp.acute.high)} (acute) and ${n0(exp.chronic.low)}–${n0(exp.chronic.high)} (chronic) mmol/L: suspect an added ${added ? DISORDER_WORDS[added] : 'metabolic disorder'}`);
+    const o = exp.observed;
+    parts.push(`HCO3 ${formatAgainst(o, 1, exp.acute.low, exp.acute.high, exp.chronic.low, exp.chronic.high)} is outside the expected ${rangeAgainst(exp.acute.low, exp.acute.high, 0, o)} (acute) and ${rangeAgainst(exp.chronic.low, exp.chronic.high, 0, o)} (chronic) mmol/L: suspect an added ${added ? DISORDER_WORDS[added] : 'metabolic disorder'}`);
     if (added) named.add(added);
   }
   const extra = cls.additional.filter((d) => d !== cls.primary && !named.has(d));

@@ -11,3 +11,31 @@ export function formatShort(value: number, max = 2): string {
   if (!Number.isFinite(value)) return '—';
   return String(Number(value.toFixed(max)));
 }
+
+/**
+ * Decimals at which `value` shows on the same side of every threshold as it is: from `decimals`
+ * up to 2 more. A PaO2 of 59.6 against 60 shows as 59.6, not as 60 next to "below 60".
+ */
+export function decimalsAgainst(value: number, decimals: number, thresholds: readonly number[]): number {
+  if (!Number.isFinite(value)) return decimals;
+  // Compared as written on paper: a quotient that is on a threshold stays on it (see forBand).
+  const exact = Math.round(value * 1e9) / 1e9;
+  for (let d = decimals; d < decimals + 2; d++) {
+    const shown = Number(value.toFixed(d < 0 ? 0 : d > 6 ? 6 : d));
+    let same = true;
+    for (const t of thresholds) if (Math.sign(shown - t) !== Math.sign(exact - t)) { same = false; break; }
+    if (same) return d;
+  }
+  return decimals + 2;
+}
+
+/** `value` with `decimals`, or more where fewer would put it on the wrong side of a threshold. */
+export function formatAgainst(value: number, decimals: number, ...thresholds: readonly number[]): string {
+  return formatNumber(value, decimalsAgainst(value, decimals, thresholds));
+}
+
+/** `low–high`, both ends with one number of decimals: the fewest that keep `observed` on its side of each. */
+export function rangeAgainst(low: number, high: number, decimals: number, observed: number): string {
+  const d = Math.max(decimalsAgainst(low, decimals, [observed]), decimalsAgainst(high, decimals, [observed]));
+  return `${formatNumber(low, d)}–${formatNumber(high, d)}`;
+}

@@ -1,0 +1,45 @@
+// A number shown beside a threshold is never rounded onto the wrong side of it: "PaO2 60 mmHg …
+// below 60" for a PaO2 of 59.6 would contradict itself at the bedside. Thresholds: hypoxaemia
+// PaO2 < 60 and hypercapnia PaCO2 > 50 mmHg (common practice, no source); plateau 30 cmH2O (ARDS
+// Network, NEJM 2000;342:1301–1308 — from memory); driving pressure 15 cmH2O (common practice, after
+// Amato MBP et al., NEJM 2015;372:747–755 — from memory); Winters' formula 1.5 × HCO3 + 8 ± 2
+// (Albert, Dell & Winters, Ann Intern Med 1967;66:312–322 — from memory).
+import { describe, expect, it } from 'vitest';
+import { checkNote } from '../../server/src/core/check-note';
+import { decimalsAgainst, formatAgainst } from '../../server/src/core/util/format';
+import { readings } from './helpers';
+
+describe('formatAgainst', () => {
+  it('adds decimals only where fewer would cross a threshold', () => {
+    expect(formatAgainst(59.6, 0, 60)).toBe('59.6');
+    expect(formatAgainst(58.6, 0, 60)).toBe('59');
+    expect(formatAgainst(50.25, 0, 50)).toBe('50.3');
+    expect(formatAgainst(60, 0, 60)).toBe('60');
+    expect(formatAgainst(59.96, 0, 60)).toBe('59.96');
+    expect(decimalsAgainst(32.5, 0, [33])).toBe(1);
+  });
+
+  it('keeps a value that is on a threshold on paper on it (114 / 0.57 = 200)', () => {
+    expect(formatAgainst(114 / 0.57, 0, 200)).toBe('200');
+  });
+});
+
+describe('readings and checks', () => {
+  it('shows a PaO2 of 59.6 and a PaCO2 of 50.25 as such beside their thresholds', () => {
+    const r = readings('@ 08:00\noxygen room air\nabg ph 7.34, pco2 50.25, po2 59.6, hco3 26.6');
+    expect(r.oxygenation).toMatch(/^PaO2 59\.6 mmHg: consistent with moderate hypoxaemia \(below 60 mmHg\)/);
+    expect(r.ventilation).toMatch(/^PaCO2 50\.3 mmHg: consistent with hypercapnia \(above 50 mmHg\)/);
+  });
+
+  it('shows the ends of an expected range with the decimals that keep the observed value outside it', () => {
+    // HCO3 15 → PaCO2 expected 1.5 × 15 + 8 ± 2 = 28.5–32.5; an observed 33 is above it.
+    const r = readings('@ 08:00\noxygen room air\nabg ph 7.27, pco2 33, po2 95, hco3 15');
+    expect(r['acid-base']).toMatch(/PaCO2 33 is above the expected 28\.5–32\.5 mmHg: suspect an added respiratory acidosis\.$/);
+  });
+
+  it('shows a plateau of 30.4 and a driving pressure of 15.4 as such beside 30 and 15', () => {
+    const messages = checkNote('@ 08:00\nvent peep 15, plateau 30.4, fio2 0.5').findings.map((f) => f.message);
+    expect(messages).toContain('Plateau pressure 30.4 cmH2O is above 30 cmH2O.');
+    expect(messages).toContain('Driving pressure is 15.4 cmH2O (plateau − PEEP), above 15 cmH2O.');
+  });
+});
