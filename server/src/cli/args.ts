@@ -27,8 +27,10 @@ Usage:
   pneumark fmt PATH... [options]       canonical layout (the editor's formatter)
   pneumark docs [--write FILE]         the documentation of every check
 
-PATH is a file, a folder (every .pneu below it), a glob pattern in quotes ("notes/**/*.pneu")
-or - for standard input. A .pneuignore file in the working folder excludes paths (gitignore syntax).
+PATH is a file, a folder (every .pneu below it, in any case; hidden folders and files and
+node_modules are skipped), a glob pattern in quotes ("notes/**/*.pneu") or - for standard input.
+A path that exists is read as a path even when it holds [ ] or ( ). A .pneuignore file in the
+working folder and --exclude PATTERN leave notes out (gitignore syntax).
 Run \`pneumark COMMAND --help\` for a command's options.
 
 Exit codes: 0 clean; 1 findings at error level, more warnings than --max-warnings, or notes that

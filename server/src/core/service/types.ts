@@ -46,7 +46,7 @@ export interface CompletionInfo {
   readonly documentation?: string;
   readonly insertText: string;
   readonly isSnippet?: boolean;
-  /** The text the completion replaces (the partly typed word); absent: insert at the cursor. */
+  /** The text the completion replaces (the whole word the cursor is in); absent: insert at the cursor. */
   readonly replace?: Range;
 }
 
