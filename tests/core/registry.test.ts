@@ -25,6 +25,7 @@ const fieldSchema = z
     doubt: bounds.optional(),
     boundsSource: z.string().min(10).optional(),
     loinc: z.object({ code: z.string().regex(/^\d{1,6}-\d$/), display: z.string().min(3), fromMemory: z.boolean().optional() }).strict().optional(),
+    loincBySection: z.record(z.string(), z.object({ code: z.string().regex(/^\d{1,6}-\d$/), display: z.string().min(3), fromMemory: z.boolean().optional() }).strict()).optional(),
     words: z.record(z.string(), z.string()).optional(),
     openWords: z.boolean().optional(),
     reading: z.boolean().optional(),

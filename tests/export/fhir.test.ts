@@ -103,7 +103,7 @@ describe('observations', () => {
 
   it('no other derived value, no subject, no identifier', () => {
     const codes = new Set(observations(bundle).map((o) => o.code.coding[0]?.code));
-    const registry = new Set(FIELDS.flatMap((f) => (f.loinc ? [f.loinc.code] : [])));
+    const registry = new Set(FIELDS.flatMap((f) => [...(f.loinc ? [f.loinc.code] : []), ...Object.values(f.loincBySection ?? {}).map((l) => l.code)]));
     for (const code of codes) expect(registry.has(code!) || code === '50984-4', code).toBe(true);
     for (const o of observations(bundle)) {
       expect(o).not.toHaveProperty('subject');
@@ -124,6 +124,15 @@ describe('observations', () => {
     const ucum = UcumLhcUtils.getInstance();
     const codes = new Set(samples().flatMap((s) => observations(toFhirBundle(s.path, s.result, noAnchor)).flatMap((o) => [o.valueQuantity?.code, ...(o.component ?? []).map((c) => c.valueQuantity.code)])));
     for (const code of codes) if (code && code !== '[pH]') expect(ucum.convertUnitTo(code, 1, code).status, code).toBe('succeeded');
+  });
+});
+
+describe('LOINC codes by section', () => {
+  it('codes a ventilator FiO2 as the ventilator setting (19994-3) and an oxygen-line FiO2 as inhaled oxygen (3150-0) — LOINC (from memory)', () => {
+    const b = toFhirBundle('a.pneu', checked('@ 08:00\nvent mode VC, vt 420, rate 16, peep 8, fio2 0.5\n@ 09:00\noxygen venturi, fio2 0.28'), noAnchor);
+    expect(byId(b, 'obs-0-fio2')?.code.coding[0]?.code).toBe('19994-3');
+    expect(byId(b, 'obs-1-fio2')?.code.coding[0]?.code).toBe('3150-0');
+    expect(validator.validate(b, true)).toEqual([]);
   });
 });
 

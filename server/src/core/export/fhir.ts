@@ -39,7 +39,7 @@ import type { NoteResult } from '../check-note';
 import type { InputValue, Timepoint } from '../analysis/model';
 import type { DerivedValue } from '../derive/model';
 import { derivedValueOf } from '../derive/registry';
-import { FIELDS, type FieldDef } from '../fields/registry';
+import { FIELDS, loincFor, type FieldDef } from '../fields/registry';
 import { unitById } from '../fields/units';
 import type { SectionId } from '../fields/sections';
 import { assertExportOptions, writtenLabel } from './columns';
@@ -228,7 +228,8 @@ interface Place {
 
 /** The Observation of one stated value; null when it has no LOINC code or no usable number. */
 function fieldObservation(field: FieldDef, input: InputValue, place: Place): Omit<FhirObservation, 'id'> | null {
-  const loinc = field.loinc;
+  // A ventilator's FiO2 is a setting with a code of its own.
+  const loinc = loincFor(field, input.stated.section);
   const unitId = input.stated.unit;
   if (!loinc || !input.stated.usable || unitId === null) return null;
   const base = {

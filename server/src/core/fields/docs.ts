@@ -3,7 +3,7 @@
  * (between the `fields:start` and `fields:end` markers). A test fails when it is stale.
  */
 import { displayUnit } from '../analysis/read-value';
-import { FIELDS } from './registry';
+import { FIELDS, loincFor } from './registry';
 import { SECTIONS } from './sections';
 import { DERIVED_TABLE_END, DERIVED_TABLE_START, renderDerivedTable } from '../derive/docs';
 
@@ -27,7 +27,8 @@ export function renderFieldTable(): string {
     out.push('| Keys | Field | Units (first is the default) | Impossible outside | Unusual outside | LOINC |', '|---|---|---|---|---|---|');
     for (const f of fields) {
       const units = f.kind === 'word' ? `word: ${[...new Set(Object.values(f.words ?? {}))].join(', ')}${f.openWords ? ', or any word' : ''}` : (f.units ?? []).map(displayUnit).join(', ') + (f.bare === 'gas' ? ' (bare: the note gas unit)' : f.bare === 'fraction-or-percent' ? ' (bare: ≤ 1 fraction, else %)' : '');
-      const loinc = f.loinc ? `${f.loinc.code}${f.loinc.fromMemory ? ' (from memory)' : ''}` : '—';
+      const code = loincFor(f, s.id);
+      const loinc = code ? `${code.code}${code.fromMemory ? ' (from memory)' : ''}` : '—';
       out.push(`| ${f.aliases.map((a) => `\`${a}\``).join(', ')} | ${f.label}${f.reading ? ' (reading, does not carry)' : ''} | ${units} | ${bounds(f.hard)} | ${bounds(f.soft)} | ${loinc} |`);
     }
     out.push('');

@@ -56,6 +56,8 @@ export interface FieldDef {
   readonly doubt?: Bounds;
   readonly boundsSource?: string;
   readonly loinc?: LoincCode;
+  /** A LOINC code of its own where the field is stated in a given section (a ventilator's FiO2 is a setting). */
+  readonly loincBySection?: Readonly<Partial<Record<SectionId, LoincCode>>>;
   /** For word fields: the words accepted (lower case), mapped to their canonical spelling. */
   readonly words?: Readonly<Record<string, string>>;
   /** For word fields: whether a word outside `words` is accepted as it is. */
@@ -97,7 +99,7 @@ const ROWS: readonly FieldDef[] = [
   // ── oxygen and ventilator settings ───────────────────────────────────
   { id: 'device', label: 'Oxygen device', description: 'How oxygen is given; written first on an oxygen line.', sections: ['oxygen'], aliases: ['device'], kind: 'word', words: { 'room air': 'room air', air: 'room air', ra: 'room air', cannula: 'cannula', nc: 'cannula', nasal: 'cannula', mask: 'mask', venturi: 'venturi', reservoir: 'reservoir', nrb: 'reservoir', hfnc: 'hfnc', highflow: 'hfnc', niv: 'niv', bilevel: 'niv', cpap: 'cpap' }, decimals: 0 },
   { id: 'o2_flow', label: 'Oxygen flow', description: 'Oxygen (or total gas) flow of the device.', sections: ['oxygen'], aliases: ['flow', 'o2flow'], kind: 'number', dimension: 'flow', unit: 'L/min', units: ['L/min'], hard: { min: 0, max: 80 }, soft: { max: 70 }, boundsSource: CP, loinc: { code: '3151-8', display: 'Inhaled oxygen flow rate' }, decimals: 1 },
-  { id: 'fio2', label: 'FiO2', short: 'FiO2', description: 'Fraction of inspired oxygen (a fraction 0.21–1.0, or a percentage).', sections: ['oxygen', 'vent', 'abg'], aliases: ['fio2', 'fi02', 'o2'], kind: 'number', dimension: 'fraction', unit: 'fraction', units: ['fraction', '%'], bare: 'fraction-or-percent', hard: { min: 0.21, max: 1 }, boundsSource: `${CP}: air is 0.21 and pure oxygen 1.0`, loinc: { code: '3150-0', display: 'Inhaled oxygen concentration' }, decimals: 2 },
+  { id: 'fio2', label: 'FiO2', short: 'FiO2', description: 'Fraction of inspired oxygen (a fraction 0.21–1.0, or a percentage).', sections: ['oxygen', 'vent', 'abg'], aliases: ['fio2', 'fi02', 'o2'], kind: 'number', dimension: 'fraction', unit: 'fraction', units: ['fraction', '%'], bare: 'fraction-or-percent', hard: { min: 0.21, max: 1 }, boundsSource: `${CP}: air is 0.21 and pure oxygen 1.0`, loinc: { code: '3150-0', display: 'Inhaled oxygen concentration' }, loincBySection: { vent: { code: '19994-3', display: 'Oxygen/Inspired gas setting [Volume Fraction] Ventilator', fromMemory: true } }, decimals: 2 },
   { id: 'ipap', label: 'IPAP', short: 'IPAP', description: 'Inspiratory positive airway pressure (non-invasive ventilation).', sections: ['oxygen'], aliases: ['ipap'], kind: 'number', dimension: 'airway-pressure', unit: 'cmH2O', units: ['cmH2O', 'mbar'], hard: { min: 0, max: 50 }, soft: { max: 30 }, boundsSource: CP, decimals: 0 },
   { id: 'epap', label: 'EPAP', short: 'EPAP', description: 'Expiratory positive airway pressure (non-invasive ventilation); counts as PEEP.', sections: ['oxygen'], aliases: ['epap'], kind: 'number', dimension: 'airway-pressure', unit: 'cmH2O', units: ['cmH2O', 'mbar'], hard: { min: 0, max: 30 }, soft: { max: 20 }, boundsSource: CP, decimals: 0 },
   { id: 'cpap_level', label: 'CPAP', short: 'CPAP', description: 'Continuous positive airway pressure level; counts as PEEP.', sections: ['oxygen'], aliases: ['level', 'pressure'], kind: 'number', dimension: 'airway-pressure', unit: 'cmH2O', units: ['cmH2O', 'mbar'], hard: { min: 0, max: 30 }, soft: { max: 20 }, boundsSource: CP, decimals: 0 },
@@ -147,7 +149,7 @@ function oneShape(f: FieldDef): FieldDef {
   return {
     id: f.id, label: f.label, short: f.short, description: f.description, sections: f.sections, aliases: f.aliases, kind: f.kind,
     dimension: f.dimension, unit: f.unit, units: f.units, bare: f.bare, hard: f.hard && oneBounds(f.hard), soft: f.soft && oneBounds(f.soft), doubt: f.doubt && oneBounds(f.doubt),
-    boundsSource: f.boundsSource, loinc: f.loinc, words: f.words, openWords: f.openWords, reading: f.reading, decimals: f.decimals,
+    boundsSource: f.boundsSource, loinc: f.loinc, loincBySection: f.loincBySection, words: f.words, openWords: f.openWords, reading: f.reading, decimals: f.decimals,
   };
 }
 
@@ -198,4 +200,9 @@ export function canonicalWord(field: FieldDef, word: string): string | null {
   const known = field.words?.[word.toLowerCase()];
   if (known) return known;
   return field.openWords ? word : null;
+}
+
+/** The LOINC code of a field as stated in `section`: its own code there, else the field's. */
+export function loincFor(field: FieldDef, section: SectionId): LoincCode | undefined {
+  return field.loincBySection?.[section] ?? field.loinc;
 }
