@@ -16,6 +16,7 @@ import { drivingPressureHigh, plateauHigh, tidalVolumeHigh } from './ventilation
 import { peepAbovePlateau, plateauAbovePeak, systolicBelowDiastolic } from './pressure-order';
 import { birthDate, calendarDate, emailAddress, phoneNumber, possibleName, postalCode, recordNumber } from './privacy';
 import { timeGoesBack } from './time-order';
+import { rateBelowSet } from './rate-order';
 import { fio2OutOfRange, impossibleValue, saturationAbove100, unusualValue } from './value-bounds';
 
 export const CHECKS: readonly CheckDef[] = validateCheckList([
@@ -39,6 +40,7 @@ export const CHECKS: readonly CheckDef[] = validateCheckList([
   saturationAbove100,
   fio2OutOfRange,
   timeGoesBack,
+  rateBelowSet,
   pao2AboveAlveolar,
   gasInconsistent,
   tidalVolumeHigh,
