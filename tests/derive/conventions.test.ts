@@ -1,7 +1,10 @@
 // The conventions a user may switch, and the unit registry checked against UCUM.
 import { UcumLhcUtils } from '@lhncbc/ucum-lhc';
 import { describe, expect, it } from 'vitest';
+import type { DerivedValue } from '../../server/src/core/derive/model';
 import { UNITS, convert } from '../../server/src/core/fields/units';
+import { waterVapourPressureMmhg } from '../../server/src/core/physiology';
+import { termText } from '../../server/src/core/service/derived-hover';
 import { derived } from './helpers';
 
 const onAir = 'patient age 50 y\n@ 08:00\noxygen room air\nabg 7.40/40/90/24.4';
@@ -53,11 +56,50 @@ describe('barometric pressure at a note level', () => {
   it('gives a humidified PiO2 of about 150 mmHg on air at sea level (common practice)', () => {
     expect(derived('place barometric 760\n@ 08:00\noxygen room air\nabg 7.40/40/95/24.4', 'pio2').value).toBeCloseTo(149.7, 1);
   });
+});
 
-  it('uses body temperature for water vapour when it is stated at the timepoint', () => {
+describe('water vapour pressure in the inspired PO2: 47 mmHg by default, body temperature as a setting', () => {
+  // FiO2 0.8 at PB 758 mmHg with a temperature of 38.9 °C, as at the first timepoint of the ICU sample.
+  const febrile = 'place barometric 758\n@ 08:00\nvitals temp 38.9 C\noxygen reservoir, fio2 0.8\nabg 7.40/40/200/24.4';
+  const afebrile = 'place barometric 758\n@ 08:00\noxygen reservoir, fio2 0.8\nabg 7.40/40/200/24.4';
+  const ph2oOf = (d: DerivedValue) => d.inputs.find((t) => t.name === 'PH2O')!;
+
+  it('is PiO2 = FiO2 × (PB − 47) even when a temperature is stated (common practice; West, Respiratory Physiology, from memory)', () => {
+    // 0.8 × (758 − 47) = 568.8 mmHg, the same with or without the 38.9 °C.
+    const pio2 = derived(febrile, 'pio2');
+    expect(pio2.value).toBeCloseTo(0.8 * (758 - 47), 6);
+    expect(pio2.value).toBeCloseTo(568.8, 6);
+    expect(derived(afebrile, 'pio2').value).toBeCloseTo(pio2.value, 10);
+    expect(pio2.substituted).toBe('0.80 × (758 − 47) = 569 mmHg');
+    // So the alveolar PO2 does not move with the temperature: 568.8 − 40/0.8 = 518.8 mmHg (common practice).
+    expect(derived(febrile, 'pao2_alveolar').value).toBeCloseTo(518.8, 6);
+    expect(derived(febrile, 'pao2_alveolar').value).toBeCloseTo(derived(afebrile, 'pao2_alveolar').value, 10);
+    expect(derived(febrile, 'pio2', { waterVapour: 'fixed' }).value).toBeCloseTo(pio2.value, 10);
+  });
+
+  it('says which water vapour pressure was used and why', () => {
+    const fixed = ph2oOf(derived(febrile, 'pio2'));
+    expect(termText(fixed)).toBe('PH2O 47 mmHg (37 °C)');
+    expect(fixed.origin).toEqual({ kind: 'default', description: 'humidified at 37 °C, the pinned convention (setting waterVapour: fixed); the temperature 38.9 °C stated here is not used' });
+    expect(ph2oOf(derived(afebrile, 'pio2')).origin).toEqual({ kind: 'default', description: 'humidified at 37 °C, the pinned convention (setting waterVapour: fixed)' });
+    const body = ph2oOf(derived(febrile, 'pio2', { waterVapour: 'body-temperature' }));
+    expect(termText(body)).toBe('PH2O 52.2 mmHg (saturated at 38.9 °C, setting waterVapour: body-temperature)');
+    expect(body.origin.kind).toBe('here');
+    expect(ph2oOf(derived(afebrile, 'pio2', { waterVapour: 'body-temperature' })).origin).toEqual({ kind: 'default', description: 'humidified at 37 °C: no temperature at this timepoint (setting waterVapour: body-temperature)' });
+  });
+
+  it('uses the saturated vapour pressure at the stated temperature with the setting body-temperature (Buck AL 1981, from memory)', () => {
     // Saturated water vapour ≈ 47.1 mmHg at 37 °C and ≈ 52.4 mmHg at 39 °C (steam tables, from memory; Buck 1981).
-    const pio2 = derived('place barometric 760\n@ 08:00\nvitals temp 39 C\noxygen room air\nabg 7.40/40/95/24.4', 'pio2');
-    expect(pio2.inputs.find((t) => t.name === 'PH2O')?.value).toBeCloseTo(52.4, 0);
+    const at39 = derived('place barometric 760\n@ 08:00\nvitals temp 39 C\noxygen room air\nabg 7.40/40/95/24.4', 'pio2', { waterVapour: 'body-temperature' });
+    expect(ph2oOf(at39).value).toBeCloseTo(52.4, 0);
+    // The ICU sample's numbers before the default changed: 0.8 × (758 − 52.2) ≈ 565 mmHg (Buck 1981, from memory).
+    const pio2 = derived(febrile, 'pio2', { waterVapour: 'body-temperature' });
+    expect(ph2oOf(pio2).value).toBeCloseTo(waterVapourPressureMmhg(38.9)!, 10);
+    expect(ph2oOf(pio2).value).toBeCloseTo(52.2, 1);
+    expect(pio2.value).toBeCloseTo(0.8 * (758 - waterVapourPressureMmhg(38.9)!), 10);
+    expect(Math.round(pio2.value)).toBe(565);
+    // No temperature at the timepoint: 47 mmHg (common practice).
+    expect(derived(afebrile, 'pio2', { waterVapour: 'body-temperature' }).value).toBeCloseTo(568.8, 6);
   });
 });
 

@@ -1,7 +1,9 @@
 // Editor settings read key by key, the diagnostic of an invalid pneumark.config.json at the
 // place JSON.parse stopped, and the size limit counted in UTF-8 bytes.
+import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { jsonErrorOffset, parseProjectConfig } from '../../server/src/core/config';
+import { DEFAULT_SETTINGS, settingsSchema } from '../../server/src/core/settings';
 import { exceedsBytes, formattedLines } from '../../server/src/server/server';
 import { DEFAULT_CLIENT_SETTINGS, effectiveSettings, readClientSettings } from '../../server/src/server/settings';
 
@@ -31,6 +33,45 @@ describe('readClientSettings', () => {
     expect(readClientSettings(undefined)).toEqual({ settings: DEFAULT_CLIENT_SETTINGS, problem: null });
     expect(readClientSettings(Object.create({ gasUnit: 'kPa' })).settings.analysis).toEqual({});
     expect(readClientSettings({ gasUnit: null }).problem).toBeNull();
+  });
+});
+
+describe('the waterVapour setting', () => {
+  it('defaults to fixed (47 mmHg) and takes body-temperature from the editor', () => {
+    expect(DEFAULT_SETTINGS.waterVapour).toBe('fixed');
+    const { settings, problem } = readClientSettings({ waterVapour: 'body-temperature' });
+    expect(problem).toBeNull();
+    expect(settings.analysis).toEqual({ waterVapour: 'body-temperature' });
+    expect(effectiveSettings(settings, null).analysis.waterVapour).toBe('body-temperature');
+    expect(effectiveSettings(readClientSettings({}).settings, null).analysis.waterVapour).toBe('fixed');
+  });
+
+  it('drops an invalid value from the editor with a message naming it, keeping the other keys', () => {
+    const { settings, problem } = readClientSettings({ waterVapour: '37C', gasUnit: 'kPa' });
+    expect(settings.analysis).toEqual({ gasUnit: 'kPa' });
+    expect(problem).toMatch(/pneumark\.waterVapour/);
+    expect(problem).not.toMatch(/gasUnit/);
+  });
+
+  it('is accepted in pneumark.config.json, overrides the editor, and an invalid value is reported at its key', () => {
+    const project = parseProjectConfig('{ "waterVapour": "body-temperature" }');
+    expect(project).toEqual({ settings: { waterVapour: 'body-temperature' }, hints: {}, problems: [] });
+    expect(effectiveSettings(readClientSettings({ waterVapour: 'fixed' }).settings, project).analysis.waterVapour).toBe('body-temperature');
+    const invalid = parseProjectConfig('{\n  "gasUnit": "kPa",\n  "waterVapour": "humid"\n}');
+    expect(invalid.settings).toEqual({});
+    expect(invalid.problems).toHaveLength(1);
+    expect(invalid.problems[0]?.message).toMatch(/`waterVapour`/);
+    expect(invalid.problems[0]?.range).toEqual({ start: { line: 2, character: 2 }, end: { line: 2, character: 15 } });
+  });
+
+  it('is contributed to VS Code with the same values and default as the schema', () => {
+    const manifest = JSON.parse(readFileSync('package.json', 'utf8')) as {
+      contributes: { configuration: { properties: Record<string, { enum?: unknown[]; default?: unknown; markdownDescription?: string }> } };
+    };
+    const contributed = manifest.contributes.configuration.properties['pneumark.waterVapour'];
+    expect(contributed?.enum).toEqual(settingsSchema.shape.waterVapour.unwrap().options);
+    expect(contributed?.default).toBe(DEFAULT_SETTINGS.waterVapour);
+    expect(contributed?.markdownDescription).toMatch(/47 mmHg/);
   });
 });
 

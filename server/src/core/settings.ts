@@ -14,6 +14,12 @@ export const settingsSchema = z.object({
   alveolarEquation: z.enum(['simplified', 'full']).default('simplified'),
   /** Barometric model used when only altitude is given. */
   barometricModel: z.enum(['west', 'standard']).default('west'),
+  /**
+   * Water vapour pressure in the inspired PO2: `fixed` is 47 mmHg (humidified at 37 °C) always;
+   * `body-temperature` is the saturated vapour pressure at the temperature stated at that
+   * timepoint, else 47 mmHg.
+   */
+  waterVapour: z.enum(['fixed', 'body-temperature']).default('fixed'),
   /** Age-based upper normal of the A–a gradient. */
   aaGradientRule: z.enum(['age-over-4-plus-4', 'age-plus-10-over-4', 'mellemgaard']).default('age-over-4-plus-4'),
   /** PaO2 below this (mmHg) reads as hypoxaemia. */
