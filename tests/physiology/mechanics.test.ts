@@ -7,6 +7,7 @@ import {
   complianceStatic,
   drivingPressure,
   mechanicalPowerSimplified,
+  mechanicalPowerSurrogate,
   minuteVentilationLPerMin,
   predictedBodyWeightKg,
   ventilatoryRatio,
@@ -80,6 +81,21 @@ describe('airway resistance (constant-flow volume control; standard mechanics, c
   });
 });
 
+describe('mechanical power, surrogate for volume control (Giosa L et al., Intensive Care Med Exp 2019;7:61; from memory)', () => {
+  // Worked by us from the published formula VE × (Ppeak + PEEP + F/6) / 20; no worked example from the paper was at hand.
+  it('VE 10 L/min, Ppeak 30, PEEP 10, flow 60 L/min → 10 × (30 + 10 + 10) / 20 = 25 J/min', () => {
+    expect(mechanicalPowerSurrogate(10, 30, 10, 60)).toBeCloseTo(25, 9);
+  });
+  it('is close to the simplified power equation in constant-flow volume control: RR 20, VT 500 mL, Ppeak 30, Pplat 25, PEEP 10, flow 60', () => {
+    // Gattinoni's simplified form gives 22.05 J/min for these settings (above); the surrogate, 25.
+    expect(Math.abs(mechanicalPowerSurrogate(10, 30, 10, 60)! - mechanicalPowerSimplified(20, 500, 30, 25, 10)!)).toBeLessThan(4);
+  });
+  it('needs a positive flow and a peak pressure at or above PEEP', () => {
+    expect(mechanicalPowerSurrogate(10, 30, 10, 0)).toBeNull();
+    expect(mechanicalPowerSurrogate(10, 8, 10, 60)).toBeNull();
+  });
+});
+
 describe('mechanical power, simplified (Gattinoni et al., Intensive Care Med 2016; from memory)', () => {
   // Worked by us from the published formula; no worked example from the paper was at hand.
   it('RR 20, VT 500 mL, Ppeak 30, Pplat 25, PEEP 10 → 0.098 × 20 × 0.5 × (30 − 7.5) = 22.05 J/min', () => {
@@ -131,6 +147,7 @@ describe('null safety (fast-check)', () => {
     complianceDynamic: totality(fc.tuple(d, d, d), mechanics.complianceDynamic),
     airwayResistance: totality(fc.tuple(d, d, d), mechanics.airwayResistance),
     mechanicalPowerSimplified: totality(fc.tuple(d, d, d, d, d), mechanics.mechanicalPowerSimplified),
+    mechanicalPowerSurrogate: totality(fc.tuple(d, d, d, d), mechanics.mechanicalPowerSurrogate),
     ventilatoryRatio: totality(fc.tuple(d, d, d), mechanics.ventilatoryRatio),
   };
   it('covers every exported function', () => {

@@ -6,6 +6,7 @@ import {
   complianceStatic,
   drivingPressure,
   mechanicalPowerSimplified,
+  mechanicalPowerSurrogate,
   minuteVentilationLPerMin,
   predictedBodyWeightKg,
   ventilatoryRatio,
@@ -171,6 +172,29 @@ export const mechanicalPower = defineDerived({
     if (!peak || !plat) return { kind: 'na', reason: 'needs peak and plateau pressures' };
     if (!rr || !vt || !peep) return c.missing([rr, 'rr'], [vt, 'vt'], [peep, 'peep']);
     return c.value(mechanicalPowerSimplified(rr.value, vt.value, peak.value, plat.value, peep.value), [rr, vt, peak, plat, peep]);
+  },
+});
+
+export const mechanicalPowerSurrogateDef = defineDerived({
+  id: 'mechanical_power_surrogate',
+  label: 'Mechanical power (surrogate, volume control)',
+  short: 'MP surr',
+  unit: 'J/min',
+  decimals: 1,
+  category: 'mechanics',
+  formula: '{VE} × ({Ppeak} + {PEEP} + {flow} ÷ 6) ÷ 20',
+  source: SOURCES['giosa-2019'],
+  anchors: ['peak', 'insp_flow'],
+  compute(c) {
+    const mode = c.word('mode');
+    if (mode && mode.word !== 'VC') return { kind: 'na', reason: 'the surrogate is for volume control' };
+    const ve = c.derived('minute_ventilation', 'VE');
+    const peak = c.field('peak', 'Ppeak');
+    const peep = c.field('peep', 'PEEP');
+    const flow = c.field('insp_flow', 'flow');
+    if (!peak || !flow) return { kind: 'na', reason: 'needs the peak pressure and the inspiratory flow' };
+    if (!ve || !peep) return c.missing([ve, c.lacking('minute_ventilation')], [peep, 'peep']);
+    return c.value(mechanicalPowerSurrogate(ve.value, peak.value, peep.value, flow.value), [ve, peak, peep, flow]);
   },
 });
 

@@ -45,6 +45,7 @@ export const DERIVED: readonly DerivedDefinition[] = validateDerived([
   mech.complianceDynamicDef,
   mech.airwayResistanceDef,
   mech.mechanicalPower,
+  mech.mechanicalPowerSurrogateDef,
   mech.ventilatoryRatioDef,
   transport.cao2,
   transport.do2,
@@ -64,12 +65,30 @@ function validateDerived(list: readonly DerivedDefinition[]): readonly DerivedDe
 const byId: ReadonlyMap<string, DerivedDefinition> = new Map(DERIVED.map((d) => [d.id, d]));
 const TABLE: DerivedTable = { list: DERIVED, slots: new Map(DERIVED.map((d, i) => [d.id, i])) };
 
-/** For each field id, a 32-bit mask of the slots of the definitions it anchors (a value is reported where an anchor is stated). */
-const ANCHORED: ReadonlyMap<string, number> = (() => {
-  if (DERIVED.length > 32) throw new Error('relevance masks hold 32 derived values (a 32-bit integer); use a wider mask');
-  const out = new Map<string, number>();
+/**
+ * Relevance masks: one bit per slot, in two 32-bit words (slots 0–31 in `lo`, 32–63 in `hi`), so
+ * the bit operations stay on small integers.
+ */
+interface SlotMask {
+  lo: number;
+  hi: number;
+}
+
+function hasSlot(mask: SlotMask, slot: number): boolean {
+  return slot < 32 ? (mask.lo & (1 << slot)) !== 0 : (mask.hi & (1 << (slot - 32))) !== 0;
+}
+
+/** For each field id, the mask of the slots of the definitions it anchors (a value is reported where an anchor is stated). */
+const ANCHORED: ReadonlyMap<string, SlotMask> = (() => {
+  if (DERIVED.length > 64) throw new Error('relevance masks hold 64 derived values (two 32-bit words); use a wider mask');
+  const out = new Map<string, SlotMask>();
   DERIVED.forEach((d, slot) => {
-    for (const id of d.anchors) out.set(id, (out.get(id) ?? 0) | (1 << slot));
+    for (const id of d.anchors) {
+      const m = out.get(id) ?? { lo: 0, hi: 0 };
+      if (slot < 32) m.lo |= 1 << slot;
+      else m.hi |= 1 << (slot - 32);
+      out.set(id, m);
+    }
   });
   return out;
 })();
@@ -83,12 +102,15 @@ export function derivedDef(id: string): DerivedDefinition | undefined {
  * anchor input stated here (in force with origin `here`). Read from the few values stated here
  * rather than by asking every definition about every anchor.
  */
-function relevantSlots(tp: Timepoint, ctx: DeriveContext): number {
-  let mask = 0;
+function relevantSlots(tp: Timepoint, ctx: DeriveContext): SlotMask {
+  const mask: SlotMask = { lo: 0, hi: 0 };
   for (const s of tp.stated) {
     const slots = ANCHORED.get(s.fieldId);
-    if (slots === undefined || (mask & slots) === slots) continue;
-    if (ctx.statedHere(s.fieldId)) mask |= slots;
+    if (slots === undefined || ((mask.lo & slots.lo) === slots.lo && (mask.hi & slots.hi) === slots.hi)) continue;
+    if (ctx.statedHere(s.fieldId)) {
+      mask.lo |= slots.lo;
+      mask.hi |= slots.hi;
+    }
   }
   return mask;
 }
@@ -111,7 +133,7 @@ export function derivedAt(tp: Timepoint, settings: Settings, id: string): Derive
  */
 class TimepointValues implements TimepointDerivation {
   private readonly ctx: DeriveContext;
-  private relevant: number | null = null;
+  private relevant: SlotMask | null = null;
   private lists: { derived: DerivedValue[]; missing: MissingValue[]; notApplicable: NotApplicable[] } | null = null;
   private readings: readonly Interpretation[] | null = null;
 
@@ -123,7 +145,7 @@ class TimepointValues implements TimepointDerivation {
     return this.tp.index;
   }
 
-  private mask(): number {
+  private mask(): SlotMask {
     return (this.relevant ??= relevantSlots(this.tp, this.ctx));
   }
 
@@ -132,7 +154,7 @@ class TimepointValues implements TimepointDerivation {
     const lists = { derived: [] as DerivedValue[], missing: [] as MissingValue[], notApplicable: [] as NotApplicable[] };
     const relevant = this.mask();
     for (let slot = 0; slot < DERIVED.length; slot++) {
-      if ((relevant & (1 << slot)) === 0) continue;
+      if (!hasSlot(relevant, slot)) continue;
       const r = this.ctx.evaluateSlot(slot);
       if (!r) continue;
       if ('value' in r) lists.derived.push(r);
@@ -154,7 +176,7 @@ class TimepointValues implements TimepointDerivation {
   /** The value `id` when it is reported here (the same as finding it in `derived`). */
   value(id: string): DerivedValue | null {
     const slot = TABLE.slots.get(id);
-    if (slot === undefined || (this.mask() & (1 << slot)) === 0) return null;
+    if (slot === undefined || !hasSlot(this.mask(), slot)) return null;
     const r = this.ctx.evaluateSlot(slot);
     return r && 'value' in r ? r : null;
   }

@@ -238,13 +238,26 @@ function summaryColumns(): Column[] {
   ];
 }
 
+/**
+ * Derived values added after the first published column list: their columns come after every
+ * earlier column, in the order added, so a reader that counts columns finds the old ones where
+ * they were.
+ */
+const ADDED_LATER: readonly string[] = ['mechanical_power_surrogate'];
+
 function buildColumns(): readonly Column[] {
   const fieldIds = new Set(FIELDS.map((f) => f.id));
+  const later = new Set(ADDED_LATER);
   const columns = [
     ...timepointColumns(),
     ...FIELDS.flatMap(fieldColumns),
-    ...DERIVED.flatMap((d) => derivedColumns(d, fieldIds)),
+    ...DERIVED.filter((d) => !later.has(d.id)).flatMap((d) => derivedColumns(d, fieldIds)),
     ...summaryColumns(),
+    ...ADDED_LATER.flatMap((id) => {
+      const def = DERIVED.find((d) => d.id === id);
+      if (!def) throw new Error(`export column for ${id}: no such derived value`);
+      return derivedColumns(def, fieldIds);
+    }),
   ];
   const names = new Set<string>();
   for (const c of columns) {

@@ -19,6 +19,8 @@ export const SOURCES = Object.freeze({
     'Static compliance VT / (Pplat − PEEP), dynamic compliance VT / (Ppeak − PEEP), resistance (Ppeak − Pplat) / flow in constant-flow volume control, minute ventilation VT × RR: standard respiratory mechanics; common practice, no single source.',
   'gattinoni-2016':
     'Gattinoni L, Tonetti T, Cressoni M, et al. Ventilator-related causes of lung injury: the mechanical power. Intensive Care Med 2016;42(10):1567–1575 (from memory).',
+  'giosa-2019':
+    'Giosa L, Busana M, Pasticci I, et al. Mechanical power at a glance: a simple surrogate for volume-controlled ventilation. Intensive Care Med Exp 2019;7:61 (from memory).',
   'sinha-2009':
     'Sinha P, Fauvel NJ, Singh S, Soni N. Ventilatory ratio: a simple bedside measure of ventilation. Br J Anaesth 2009;102(5):692–697 (from memory).',
   'sinha-2019':
@@ -125,6 +127,17 @@ export function mechanicalPowerSimplified(
   if (pplatCmh2o < peepCmh2o || ppeakCmh2o < pplatCmh2o) return null;
   const driving = pplatCmh2o - peepCmh2o;
   return finiteOrNull(MECHANICAL_POWER_FACTOR * respiratoryRatePerMin * (vtMl / 1000) * (ppeakCmh2o - driving / 2));
+}
+
+/**
+ * Mechanical power (J/min), surrogate for volume control: VE (L/min) × (Ppeak + PEEP + F / 6) / 20,
+ * F the inspiratory flow in L/min. Needs no plateau pressure. `null` unless VE ≥ 0, PEEP ≥ 0,
+ * Ppeak ≥ PEEP and F > 0. Source: `giosa-2019`.
+ */
+export function mechanicalPowerSurrogate(veLPerMin: number, ppeakCmh2o: number, peepCmh2o: number, flowLPerMin: number): number | null {
+  if (!allFinite(veLPerMin, ppeakCmh2o, peepCmh2o, flowLPerMin)) return null;
+  if (veLPerMin < 0 || peepCmh2o < 0 || ppeakCmh2o < peepCmh2o || flowLPerMin <= 0) return null;
+  return finiteOrNull((veLPerMin * (ppeakCmh2o + peepCmh2o + flowLPerMin / 6)) / 20);
 }
 
 /**
