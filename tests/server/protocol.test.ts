@@ -211,6 +211,20 @@ describe('settings', () => {
     expect(configDiagnostics.diagnostics[0]?.message).toMatch(/gasUnit/);
     expect(({} as Record<string, unknown>).polluted).toBeUndefined();
   });
+
+  it('names a check in disabledChecks that does not exist on the config file, and still applies the file', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'pneumark-config-'));
+    writeFileSync(join(dir, 'pneumark.config.json'), '{\n  "gasUnit": "kPa",\n  "disabledChecks": ["PN 101", "decimal-comma"]\n}\n');
+    const configUri = pathToFileURL(join(dir, 'pneumark.config.json')).toString();
+    const uri = client.open(join(dir, 'note.pneu'), '@ 08:00\nabg ph 7,35, pco2 5.3, po2 12\n');
+    const p = await client.diagnostics(uri);
+    expect(codes(p.diagnostics)).not.toContain('PN103');
+    expect(codes(p.diagnostics).filter((c) => c.startsWith('PN2'))).toEqual([]);
+    const config = await client.diagnostics(configUri);
+    expect(config.diagnostics.map((d) => [d.message, d.range.start])).toEqual([
+      ['pneumark.config.json: `disabledChecks`: "PN 101" is not the code or alias of a check (see docs/checks.md), so it switches nothing off.', { line: 2, character: 21 }],
+    ]);
+  });
 });
 
 describe('robustness', () => {

@@ -5,6 +5,7 @@
  * Problems come back with the range they concern, for a diagnostic on the file itself.
  */
 import { z } from 'zod';
+import { CHECKS } from './checks/registry';
 import { HINT_CATEGORIES, type HintCategory } from './service/types';
 import { settingsSchema, type Settings } from './settings';
 import type { Range } from './types';
@@ -48,15 +49,17 @@ export function parseProjectConfig(text: string): ParsedConfig {
     return { settings: {}, hints: {}, problems: [{ message: `${CONFIG_FILE_NAME} is not valid JSON (${message}); Pneumark uses its defaults.`, range: rangeOfJsonError(text, message) }] };
   }
   const parsed = projectConfigSchema.safeParse(data);
+  // Looked for even when another setting is invalid, so that one reading names every problem.
+  const unknownChecks = unknownDisabledChecks(text, data);
   if (!parsed.success) {
     return {
       settings: {},
       hints: {},
-      problems: parsed.error.issues.map((issue) => {
+      problems: [...parsed.error.issues.map((issue) => {
         const key = issue.path.length > 0 ? String(issue.path[issue.path.length - 1]) : (issue.code === 'unrecognized_keys' ? (issue as { keys?: string[] }).keys?.[0] ?? '' : '');
         const where = issue.path.length > 0 ? `\`${issue.path.join('.')}\`` : 'the file';
         return { message: `${CONFIG_FILE_NAME}: ${where}: ${issue.message}. Pneumark uses its defaults until this is fixed.`, range: rangeOfKey(text, key) };
-      }),
+      }), ...unknownChecks],
     };
   }
   const { $schema: _schema, hints, ...validated } = parsed.data;
@@ -64,7 +67,30 @@ export function parseProjectConfig(text: string): ParsedConfig {
   const written = data as Record<string, unknown>;
   const settings: Record<string, unknown> = {};
   for (const [key, value] of Object.entries(validated)) if (Object.prototype.hasOwnProperty.call(written, key)) settings[key] = value;
-  return { settings: settings as Partial<Settings>, hints: hints ?? {}, problems: [] };
+  return { settings: settings as Partial<Settings>, hints: hints ?? {}, problems: unknownChecks };
+}
+
+/** Check codes (lower case) and aliases, as `disabledChecks` matches them (see `runChecks`). */
+const CHECK_NAMES: ReadonlySet<string> = new Set(CHECKS.flatMap((c) => [c.code.toLowerCase(), c.alias]));
+
+/**
+ * Names in `disabledChecks` that are no check's code or alias, with where they are written: the
+ * runner ignores them, so without a word a typo (`PN 101`) would leave the check on.
+ */
+function unknownDisabledChecks(text: string, data: unknown): ConfigProblem[] {
+  if (typeof data !== 'object' || data === null || !Object.prototype.hasOwnProperty.call(data, 'disabledChecks')) return [];
+  const listed = settingsSchema.shape.disabledChecks.safeParse((data as { disabledChecks?: unknown }).disabledChecks);
+  if (!listed.success) return []; // reported by the schema's validation
+  return listed.data
+    .filter((name) => !CHECK_NAMES.has(name.toLowerCase()))
+    .map((name) => {
+      const needle = JSON.stringify(name);
+      const at = text.indexOf(needle);
+      return {
+        message: `${CONFIG_FILE_NAME}: \`disabledChecks\`: ${needle} is not the code or alias of a check (see docs/checks.md), so it switches nothing off.`,
+        range: at < 0 ? WHOLE_FIRST_LINE : rangeOfOffsets(text, at, at + needle.length),
+      };
+    });
 }
 
 /** The range of `"key"` in the text (the first occurrence), or the first character. */
