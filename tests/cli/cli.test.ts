@@ -5,25 +5,11 @@ import { mkdtempSync, writeFileSync, mkdirSync, truncateSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { Writable } from 'node:stream';
 import { z } from 'zod';
-import type { Io } from '../../server/src/cli/args';
+import { memoryIo, type MemoryIo } from '../helpers/memory-io';
 import { run } from '../../server/src/cli/main';
 
-function io(stdinText = '', env: NodeJS.ProcessEnv = { NO_COLOR: '1' }, cwd = process.cwd()): Io & { out: () => string; err: () => string } {
-  let out = '';
-  let err = '';
-  const stderr = new Writable({ write(chunk: Buffer, _enc, done) { err += chunk.toString(); done(); } });
-  return {
-    cwd,
-    env,
-    stdout: { write: (s: string) => { out += s; return true; }, isTTY: false },
-    stderr,
-    stdin: () => Buffer.from(stdinText),
-    out: () => out,
-    err: () => err,
-  };
-}
+const io = (stdinText = '', env: NodeJS.ProcessEnv = { NO_COLOR: '1' }, cwd = process.cwd()): MemoryIo => memoryIo({ cwd, stdin: stdinText, env });
 
 const jsonShape = z.object({
   pneumark: z.literal(1),

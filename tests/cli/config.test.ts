@@ -4,25 +4,11 @@
 import { mkdirSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { Writable } from 'node:stream';
 import { describe, expect, it } from 'vitest';
-import type { Io } from '../../server/src/cli/args';
+import { memoryIo, type MemoryIo } from '../helpers/memory-io';
 import { run } from '../../server/src/cli/main';
 
-function io(cwd: string, stdinText = ''): Io & { out: () => string; err: () => string } {
-  let out = '';
-  let err = '';
-  const stderr = new Writable({ write(chunk: Buffer, _enc, done) { err += chunk.toString(); done(); } });
-  return {
-    cwd,
-    env: { NO_COLOR: '1' },
-    stdout: { write: (s: string) => { out += s; return true; }, isTTY: false },
-    stderr,
-    stdin: () => Buffer.from(stdinText),
-    out: () => out,
-    err: () => err,
-  };
-}
+const io = (cwd: string, stdinText = ''): MemoryIo => memoryIo({ cwd, stdin: stdinText });
 
 /** PaCO2 5.3 with no unit: ordinary in kPa, implausible in mmHg (PN204 unless the gas unit is kPa). */
 const NOTE = '@ day 1 08:00  first look\nabg ph 7.40, paco2 5.3, pao2 11\n';

@@ -4,26 +4,13 @@ import { spawn, spawnSync } from 'node:child_process';
 import { cpSync, mkdirSync, mkdtempSync, readFileSync, readdirSync, symlinkSync, utimesSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { Writable } from 'node:stream';
 import { describe, expect, it } from 'vitest';
-import type { Io } from '../../server/src/cli/args';
+import { memoryIo, type MemoryIo } from '../helpers/memory-io';
 import { fmtHooks } from '../../server/src/cli/fmt-command';
 import { run } from '../../server/src/cli/main';
 import { generateNote } from '../bench/generate.mjs';
 
-function io(cwd: string, stdinText = ''): Io & { out: () => string; err: () => string } {
-  let out = '';
-  let err = '';
-  return {
-    cwd,
-    env: { NO_COLOR: '1' },
-    stdout: { write: (s: string) => { out += s; return true; }, isTTY: false },
-    stderr: new Writable({ write(chunk: Buffer, _e, done) { err += chunk.toString(); done(); } }),
-    stdin: () => Buffer.from(stdinText),
-    out: () => out,
-    err: () => err,
-  };
-}
+const io = (cwd: string, stdinText = ''): MemoryIo => memoryIo({ cwd, stdin: stdinText });
 
 function corpus(): string {
   const dir = mkdtempSync(join(tmpdir(), 'pneumark-corpus-'));

@@ -3,24 +3,11 @@
 import { lstatSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, readlinkSync, statSync, symlinkSync, writeFileSync, chmodSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { Writable } from 'node:stream';
 import { describe, expect, it } from 'vitest';
-import type { Io } from '../../server/src/cli/args';
+import { memoryIo, type MemoryIo } from '../helpers/memory-io';
 import { run } from '../../server/src/cli/main';
 
-function io(cwd: string): Io & { out: () => string; err: () => string } {
-  let out = '';
-  let err = '';
-  return {
-    cwd,
-    env: { NO_COLOR: '1' },
-    stdout: { write: (s: string) => { out += s; return true; }, isTTY: false },
-    stderr: new Writable({ write(chunk: Buffer, _e, done) { err += chunk.toString(); done(); } }),
-    stdin: () => Buffer.alloc(0),
-    out: () => out,
-    err: () => err,
-  };
-}
+const io = (cwd: string): MemoryIo => memoryIo({ cwd });
 
 const messy = '@ 08:00   first\nvitals hr 80,rr 12 ,  spo2 97 %\n';
 const tidy = '@ 08:00  first\nvitals    hr 80, rr 12, spo2 97 %\n';

@@ -3,24 +3,11 @@
 import { mkdirSync, mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { Writable } from 'node:stream';
 import { describe, expect, it } from 'vitest';
-import type { Io } from '../../server/src/cli/args';
+import { memoryIo, type MemoryIo } from '../helpers/memory-io';
 import { run } from '../../server/src/cli/main';
 
-function io(cwd: string, stdinText: string | Buffer = ''): Io & { out: () => string; err: () => string } {
-  let out = '';
-  let err = '';
-  return {
-    cwd,
-    env: { NO_COLOR: '1' },
-    stdout: { write: (s: string) => { out += s; return true; }, isTTY: false },
-    stderr: new Writable({ write(chunk: Buffer, _e, done) { err += chunk.toString(); done(); } }),
-    stdin: () => Buffer.from(stdinText),
-    out: () => out,
-    err: () => err,
-  };
-}
+const io = (cwd: string, stdinText: string | Buffer = ''): MemoryIo => memoryIo({ cwd, stdin: stdinText });
 
 const clean = '@ 08:00\nvitals hr 80\n';
 const alarming = '@ 08:00\nvitals spo2 104\n'; // an error-level finding, so its path shows in the output

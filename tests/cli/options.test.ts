@@ -4,25 +4,11 @@
 import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { Writable } from 'node:stream';
 import { describe, expect, it } from 'vitest';
-import type { Io } from '../../server/src/cli/args';
+import { memoryIo, type MemoryIo } from '../helpers/memory-io';
 import { run } from '../../server/src/cli/main';
 
-function io(cwd = process.cwd()): Io & { out: () => string; err: () => string } {
-  let out = '';
-  let err = '';
-  const stderr = new Writable({ write(chunk: Buffer, _enc, done) { err += chunk.toString(); done(); } });
-  return {
-    cwd,
-    env: { NO_COLOR: '1' },
-    stdout: { write: (s: string) => { out += s; return true; }, isTTY: false },
-    stderr,
-    stdin: () => Buffer.alloc(0),
-    out: () => out,
-    err: () => err,
-  };
-}
+const io = (cwd = process.cwd()): MemoryIo => memoryIo({ cwd });
 
 const NOTE = 'samples/icu-ventilated-lung-injury.pneu';
 

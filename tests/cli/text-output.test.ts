@@ -2,26 +2,12 @@
 // escape sequence in a label must not clear the screen or retitle the window), a value whose unit
 // is in doubt is never shown converted from the doubted unit, and --quiet lists errors only in
 // every format.
-import { Writable } from 'node:stream';
 import { describe, expect, it } from 'vitest';
-import type { Io } from '../../server/src/cli/args';
+import { memoryIo, type MemoryIo } from '../helpers/memory-io';
 import { run } from '../../server/src/cli/main';
 import { visible } from '../../server/src/cli/visible';
 
-function io(stdinText = '', colour = false): Io & { out: () => string; err: () => string } {
-  let out = '';
-  let err = '';
-  const stderr = new Writable({ write(chunk: Buffer, _enc, done) { err += chunk.toString(); done(); } });
-  return {
-    cwd: process.cwd(),
-    env: colour ? { FORCE_COLOR: '1' } : { NO_COLOR: '1' },
-    stdout: { write: (s: string) => { out += s; return true; }, isTTY: colour },
-    stderr,
-    stdin: () => Buffer.from(stdinText),
-    out: () => out,
-    err: () => err,
-  };
-}
+const io = (stdinText = '', colour = false): MemoryIo => memoryIo({ stdin: stdinText, env: colour ? { FORCE_COLOR: '1' } : { NO_COLOR: '1' }, tty: colour });
 
 /** Escape sequences (clear screen, window title, colour) and other controls in every kind of text a note has. */
 const HOSTILE = [
