@@ -113,7 +113,9 @@ describe('pneumark show', async () => {
     expect(await run(['show', 'samples/home-oxygen-exacerbation.pneu'], out)).toBe(0);
     const text = out.out();
     expect(text).toMatch(/@ day 1 14:20 {2}emergency department/);
-    expect(text).toMatch(/PaCO2 72 mmHg \(9\.6 kPa\)/);
+    // A kPa note: gas pressures in kPa first (9.6 kPa = 72 mmHg), derived ones too.
+    expect(text).toMatch(/PaCO2 9\.6 kPa \(72 mmHg\)/);
+    expect(text).toMatch(/P\/F 28\.2 kPa \(212 mmHg\)/);
     const broken = io();
     await run(['show', 'samples/broken-note.pneu'], broken);
     expect(broken.out()).toMatch(/vitals {3}SpO2 104 % \(not used\)\n {6}✖ error PN306/);

@@ -102,6 +102,13 @@ describe('reading units', () => {
     expect(value(t.timepoints[0], 'pao2')).toBe(90);
   });
 
+  it('keeps the gas unit in force at each timepoint: the last `units gas` so far, else the setting', () => {
+    const text = '@ 08:00\nabg pco2 40\n@ 09:00\nunits gas kPa\nabg pco2 5.3\n@ 10:00\nabg pco2 5.1\n@ 11:00\nunits gas mmHg\nabg pco2 41';
+    expect(timeline(text).timepoints.map((tp) => tp.gasUnit)).toEqual(['mmHg', 'kPa', 'kPa', 'mmHg']);
+    expect(checkNote('units gas kPa\n@ 08:00\nabg pco2 5.3').analysis.timeline.timepoints[0]?.gasUnit).toBe('kPa');
+    expect(checkNote('@ 08:00\nabg pco2 5.3', { gasUnit: 'kPa' }).analysis.timeline.timepoints[0]?.gasUnit).toBe('kPa');
+  });
+
   it('reads FiO2 up to 1 as a fraction and above as a percentage', () => {
     const t = timeline('@ 1:00\noxygen venturi, fio2 0.28\n@ 2:00\noxygen venturi, fio2 28\n@ 3:00\noxygen venturi, fio2 28 %');
     expect(t.timepoints.map((tp) => value(tp, 'fio2'))).toEqual([0.28, 0.28, 0.28]);

@@ -120,6 +120,25 @@ describe('language features', () => {
     expect(odd.label).toBe('x');
   });
 
+  it('shows gas pressures in kPa first in a kPa note: summary, hints and their tooltips', async () => {
+    // samples/home-oxygen-exacerbation.pneu says `units gas kPa`; at 14:50 PaO2 7.9 kPa on FiO2
+    // 0.28: P/F 7.9 ÷ 0.28 = 28.2 kPa = 212 mmHg (1 kPa = 7.50062 mmHg, the units' definition,
+    // cross-checked with @lhncbc/ucum-lhc in tests/service/kpa-notes.test.ts).
+    const path = join(process.cwd(), 'samples/home-oxygen-exacerbation.pneu');
+    const text = readFileSync(path, 'utf8');
+    const doc = client.open(path, text);
+    await client.diagnostics(doc);
+    const gasLine = text.split('\n').findIndex((l) => l.startsWith('abg       ph 7.28'));
+    const summary = await client.connection.sendRequest<{ text: string }>('pneumark/timepointSummary', { uri: doc, line: gasLine });
+    expect(summary.text).toBe('P/F 28.2 kPa (212) · pH 7.28 · PaCO2 9.1 kPa · PaO2 7.9 kPa · SpO2 90%');
+    const hints = await client.connection.sendRequest<InlayHint[]>('textDocument/inlayHint', { textDocument: { uri: doc }, range: { start: { line: gasLine, character: 0 }, end: { line: gasLine, character: 0 } } });
+    const pf = hints.find((h) => String(h.label).startsWith('P/F'));
+    expect(pf?.label).toBe('P/F 28.2 kPa (212) · A–a 7.3 kPa (55), ≤ 2.9');
+    const resolved = await client.connection.sendRequest<InlayHint>('inlayHint/resolve', pf);
+    const tooltip = typeof resolved.tooltip === 'object' ? resolved.tooltip.value : resolved.tooltip;
+    expect(tooltip).toContain('With the numbers: `7.9 ÷ 0.28 = 28.2 kPa (212 mmHg)`');
+  });
+
   it('completes sections at the start of a line and keys after a section', async () => {
     const text = `${icu}\nvi`;
     client.change(uri, text, 2);

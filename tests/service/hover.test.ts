@@ -56,7 +56,22 @@ describe('hover on a key, value or unit', () => {
     const md = markdown(note('units gas kPa', '@ 08:00', 'abg 7.28/7.5/9|.5/26'));
     expect(md).toContain('the third number of the shorthand gas');
     expect(md).toContain('read in kPa — the note\'s gas unit (`units gas`, line 1)');
-    expect(md).toContain('**71 mmHg** = 9.5 kPa');
+    // In a kPa note the value leads in kPa, as written (9.5 kPa = 71.3 mmHg; 1 kPa = 7.50062 mmHg).
+    expect(md).toContain('**9.5 kPa** = 71 mmHg');
+  });
+
+  it('shows a stated value with at least the decimals it was written with', () => {
+    // The finding quotes 7.5; the hover no longer rounds it to 8 (7.5 mmHg = 1.0 kPa).
+    const pco2 = markdown('abg pco2 7.|5');
+    expect(pco2).toContain('**7.5 mmHg** = 1.0 kPa');
+    expect(pco2).not.toContain('**8 mmHg**');
+    expect(markdown('vent fio2 0.35|5')).toContain('**0.355** (a fraction) = 35.5 %');
+    // 35.5 % is 0.355: the decimals move with the power of ten between the units.
+    expect(markdown('vent fio2 35.|5 %')).toContain('**0.355** (a fraction) = 35.5 %');
+    // Never fewer than the unit's usual decimals, and no more than written where those are fewer.
+    expect(markdown('abg po2 7|1')).toContain('**71 mmHg** = 9.5 kPa');
+    expect(markdown('vent fio2 0.|4')).toContain('**0.40** (a fraction) = 40 %');
+    expect(markdown(note('units gas kPa', '@ 08:00', 'abg pco2 7.2|5'))).toContain('**7.25 kPa** = 54 mmHg');
   });
 
   it('shows FiO2 as a fraction and a percentage, temperature in °C and °F, Hb in g/dL and g/L', () => {

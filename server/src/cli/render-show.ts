@@ -7,7 +7,7 @@
  */
 import type { NoteResult } from '../core/check-note';
 import type { StatedValue, Timepoint } from '../core/analysis/model';
-import { shortOf, formatAlternative, formatStated, describeOrigin } from '../core/present';
+import { shortOf, formatAlternative, formatStated, describeOrigin, showsKpa, statedInKpa } from '../core/present';
 import { fieldById } from '../core/fields/registry';
 import { convert, unitById } from '../core/fields/units';
 import { displayUnit } from '../core/analysis/read-value';
@@ -48,8 +48,11 @@ export function renderShow(path: string, result: NoteResult, p: Paint): string {
   for (const tp of analysis.timeline.timepoints) tpByEnd.set(tp.endLine, tp);
 
   let printedHeader = false;
+  /** The timepoint the line belongs to (null in the header): its gas unit decides how gas pressures are shown. */
+  let current: Timepoint | null = null;
   for (const node of analysis.tree.lines) {
     const tp = tpByStart.get(node.line);
+    if (tp) current = tp;
     if (tp && tp.line === null) out.push('', p.bold(p.cyan('@ (start)')));
     if (node.kind === 'timepoint') {
       out.push('', `${p.bold(p.cyan(`@ ${visible(node.time?.text ?? '?')}`))}${node.label ? `  ${visible(node.label.text)}` : ''}  ${p.dim(`line ${node.line + 1}`)}`);
@@ -58,7 +61,7 @@ export function renderShow(path: string, result: NoteResult, p: Paint): string {
         out.push('', p.bold('header'));
         printedHeader = true;
       }
-      out.push(renderSectionLine(node, statedByLine.get(node.line) ?? [], p));
+      out.push(renderSectionLine(node, statedByLine.get(node.line) ?? [], showsKpa(current), p));
     } else if (node.kind === 'unknown') {
       out.push(`  ${p.red('?')} ${visible(node.text.trim())}`);
     }
@@ -69,14 +72,16 @@ export function renderShow(path: string, result: NoteResult, p: Paint): string {
   return out.join('\n');
 }
 
-function renderSectionLine(node: Extract<LineNode, { kind: 'section' }>, stated: readonly StatedValue[], p: Paint): string {
+/** A section line's values; where the gas unit in force is kPa (`kpa`), gas pressures in kPa first: `PaCO2 9.6 kPa (72 mmHg)`. */
+function renderSectionLine(node: Extract<LineNode, { kind: 'section' }>, stated: readonly StatedValue[], kpa: boolean, p: Paint): string {
   const head = `  ${p.blue(visible(node.section).padEnd(8))}`;
   if (node.section === 'note') return `${head} ${p.dim(visible(node.prose?.text ?? ''))}`;
   const parts = stated.map((s) => {
+    const inKpa = kpa && !s.unitDoubt ? statedInKpa(s) : null;
     // A bare number whose unit is in doubt is shown as written, with what it would be if it was
     // written in the likely unit (never a conversion from the unit it is doubted in).
-    const alt = s.unitDoubt ? ifLikelyUnit(s) : s.unit !== 'fraction' ? formatAlternative(s) : null;
-    const value = s.unitDoubt ? `${s.item.value?.text ?? ''} ?` : formatStated(s);
+    const alt = inKpa ? formatStated(s) : s.unitDoubt ? ifLikelyUnit(s) : s.unit !== 'fraction' ? formatAlternative(s) : null;
+    const value = inKpa ?? (s.unitDoubt ? `${s.item.value?.text ?? ''} ?` : formatStated(s));
     const flag = s.usable ? '' : p.yellow(' (not used)');
     return `${shortOf(s.fieldId)} ${p.bold(visible(value))}${alt ? p.dim(` (${visible(alt)})`) : ''}${flag}`;
   });
@@ -108,7 +113,8 @@ function renderTimepointFooter(tp: Timepoint, derivation: TimepointDerivation | 
   for (const v of carried) {
     const from = visible(describeOrigin(v.origin));
     const list = groups.get(from) ?? [];
-    list.push(`${shortOf(v.stated.fieldId)} ${visible(formatStated(v.stated))}`);
+    const inKpa = showsKpa(tp) ? statedInKpa(v.stated) : null;
+    list.push(`${shortOf(v.stated.fieldId)} ${visible(inKpa ? `${inKpa} (${formatStated(v.stated)})` : formatStated(v.stated))}`);
     groups.set(from, list);
   }
   for (const [from, values] of groups) lines.push(`  ${p.magenta('carried'.padEnd(8))} ${values.join(p.dim(' · '))} ${p.dim(`(${from})`)}`);

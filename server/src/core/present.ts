@@ -2,10 +2,10 @@
  * Plain-text presentation shared by the CLI, hovers and exports: how a value is written
  * back for a person, in its unit, and in the other unit system where there is one.
  */
-import type { InputValue, Origin, StatedValue } from './analysis/model';
+import type { InputValue, Origin, StatedValue, Timepoint } from './analysis/model';
 import { displayUnit } from './analysis/read-value';
 import { fieldById, shortName } from './fields/registry';
-import { convert, unitById } from './fields/units';
+import { convert, unitById, type UnitDef } from './fields/units';
 import { formatNumber } from './util/format';
 
 /** Decimals that keep a value's precision in another unit. */
@@ -17,18 +17,100 @@ export function decimalsFor(unitId: string, fallback: number): number {
   return fallback;
 }
 
-/** `71 mmHg`, `0.40`, `female`, `96/58 mmHg`: the value in its canonical unit. */
+/**
+ * `71 mmHg`, `0.40`, `female`, `96/58 mmHg`: the value in its canonical unit (or `unitId`), never
+ * with fewer decimals than it was written with (`pco2 7.5` shows as 7.5 mmHg, `fio2 0.355` as 0.355).
+ */
 export function formatStated(s: StatedValue, unitId?: string): string {
   if (s.word !== null) return s.word;
+  const target = unitById(unitId ?? s.unit ?? '') ?? unitById(s.unit ?? '');
+  const number = statedNumber(s, unitId);
+  if (number === null || !target) return s.item.value?.text ?? '';
+  const unit = target.id === 'fraction' || target.id === 'ph' ? '' : ` ${displayUnit(target.id)}`;
+  return `${number}${unit}`;
+}
+
+/** The number(s) of a stated value in its canonical unit (or `unitId`), without the unit; null when it has none. */
+export function statedNumber(s: StatedValue, unitId?: string): string | null {
   const field = fieldById(s.fieldId);
   const canonical = unitById(s.unit ?? '');
   const target = unitById(unitId ?? s.unit ?? '') ?? canonical;
-  if (!field || !canonical || !target) return s.item.value?.text ?? '';
-  const decimals = decimalsFor(target.id, field.decimals);
+  if (s.word !== null || !field || !canonical || !target) return null;
+  const decimals = Math.max(decimalsFor(target.id, field.decimals), writtenPrecisionIn(s, target));
   const show = (v: number) => formatNumber(convert(v, canonical, target) ?? v, decimals);
-  const number = s.parts ? s.parts.map(show).join('/') : s.value !== null ? show(s.value) : '';
-  const unit = target.id === 'fraction' || target.id === 'ph' ? '' : ` ${displayUnit(target.id)}`;
-  return `${number}${unit}`;
+  return s.parts ? s.parts.map(show).join('/') : s.value !== null ? show(s.value) : '';
+}
+
+/**
+ * The decimals a value needs in `target` to keep the digits it was written with: the written
+ * decimals in the unit it was read in, shifted by the power of ten between the two units
+ * (35.5 % is 0.355); 0 when the units are not a power of ten apart (mmHg and kPa).
+ */
+function writtenPrecisionIn(s: StatedValue, target: UnitDef): number {
+  const read = unitById(s.readUnit ?? '');
+  const text = s.item.value?.text;
+  if (!read || !text) return 0;
+  const written = writtenDecimals(text);
+  if (read === target) return written;
+  const factor = convert(1, read, target);
+  if (factor === null || factor <= 0) return 0;
+  const shift = -Math.log10(factor);
+  const whole = Math.round(shift);
+  return Math.abs(shift - whole) < 1e-9 ? Math.max(0, written + whole) : 0;
+}
+
+/** The most decimals among the numbers of a value's text (`7.5` → 1, `0.355` → 3, `7,25` → 2, `120/80` → 0). */
+export function writtenDecimals(text: string): number {
+  let most = 0;
+  let run = -1;
+  for (let i = 0; i < text.length; i++) {
+    const c = text.charCodeAt(i);
+    if (c === 0x2e || c === 0x2c) run = 0;
+    else if (c >= 0x30 && c <= 0x39) {
+      if (run >= 0 && ++run > most) most = run;
+    } else run = -1;
+  }
+  return most;
+}
+
+// ── gas pressures in a kPa note ─────────────────────────────────────────
+// Inside the core gas pressures are mmHg. Where the gas unit in force at a timepoint is kPa
+// (`units gas kPa`, or the gasUnit setting), they are shown in kPa first, with mmHg in
+// parentheses: `28.2 kPa (212 mmHg)`, compact `28.2 kPa (212)`.
+
+const MMHG = unitById('mmHg')!;
+const KPA = unitById('kPa')!;
+/** Decimals of a gas pressure shown in kPa. */
+export const KPA_DECIMALS = decimalsFor('kPa', 1);
+
+/** Whether gas pressures at this timepoint are shown in kPa first: its gas unit in force is kPa. */
+export function showsKpa(tp: Timepoint | null | undefined): boolean {
+  return tp?.gasUnit === 'kPa';
+}
+
+/** A pressure in mmHg, in kPa (the unit registry's conversion: 1 kPa = 7.50062 mmHg). */
+export function kpaFromMmhg(mmHg: number): number {
+  return convert(mmHg, MMHG, KPA) ?? Number.NaN;
+}
+
+/** `28.2`: a pressure in mmHg as a number of kPa. */
+export function kpaNumber(mmHg: number): string {
+  return formatNumber(kpaFromMmhg(mmHg), KPA_DECIMALS);
+}
+
+/** Whether a field is a gas pressure a note may write in kPa (PaO2, PaCO2; not a blood pressure). */
+export function isKpaField(fieldId: string): boolean {
+  return fieldById(fieldId)?.units?.includes('kPa') === true;
+}
+
+/**
+ * `9.6 kPa` in a kPa note: a stated gas pressure in kPa, with the decimals it was written with;
+ * null when the value is not a gas pressure (then it is shown as `formatStated` shows it).
+ */
+export function statedInKpa(s: StatedValue): string | null {
+  if (s.unit !== 'mmHg' || !isKpaField(s.fieldId)) return null;
+  const number = statedNumber(s, 'kPa');
+  return number === null || number === '' ? null : `${number} kPa`;
 }
 
 /** The value in the other unit system, when the field has one (mmHg ↔ kPa, °C ↔ °F, ...). */
@@ -66,6 +148,9 @@ export function shortOf(fieldId: string): string {
   return f ? shortName(f) : fieldId;
 }
 
-export function describeInput(input: InputValue): string {
-  return `${labelOf(input.stated.fieldId)} ${formatStated(input.stated)} (${describeOrigin(input.origin)})`;
+/** `FiO2 0.40 (line 3)`; at a timepoint whose gas unit is kPa, a gas pressure in kPa first (`PB 83.7 kPa = 628 mmHg (header, line 2)`). */
+export function describeInput(input: InputValue, tp: Timepoint | null = null): string {
+  const kpa = showsKpa(tp) ? statedInKpa(input.stated) : null;
+  const value = kpa ? `${kpa} = ${formatStated(input.stated)}` : formatStated(input.stated);
+  return `${labelOf(input.stated.fieldId)} ${value} (${describeOrigin(input.origin)})`;
 }

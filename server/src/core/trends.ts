@@ -6,6 +6,7 @@ import type { Timepoint } from './analysis/model';
 import type { NoteResult } from './check-note';
 import type { TimepointDerivation } from './derive/model';
 import { derivedValueOf } from './derive/registry';
+import { kpaNumber, showsKpa, statedInKpa } from './present';
 import { formatNumber } from './util/format';
 
 export const TREND_FIELDS = ['pao2', 'paco2', 'ph', 'spo2', 'fio2', 'peep'] as const;
@@ -59,18 +60,25 @@ function trendPoint(tp: Timepoint, derivation: TimepointDerivation): TrendPointD
   return { timepoint: tp.index, label: tp.label, line: tp.line ?? tp.startLine, minutes: tp.time.minutes, values, carried };
 }
 
-/** Key figures of the timepoint that holds a line, for a status bar: `P/F 147 · PaCO2 47 · pH 7.31`. */
+/**
+ * Key figures of the timepoint that holds a line, for a status bar: `P/F 147 · pH 7.31 · PaCO2 47`.
+ * Where the gas unit in force is kPa, gas pressures say their unit, in kPa (PaCO2 as the note wrote
+ * it), and P/F gives mmHg in parentheses: `P/F 19.6 kPa (147) · pH 7.31 · PaCO2 6.3 kPa`.
+ */
 export function timepointSummary(result: NoteResult, line: number): { label: string; text: string; tooltip: string } | null {
   const { timeline } = result.analysis;
   const tp = timeline.timepoints.find((t) => line >= t.startLine && line <= t.endLine);
   if (!tp) return null;
   const d = result.analysis.derivation(tp.index);
   const parts: string[] = [];
+  const kpa = showsKpa(tp);
   const pf = derivedValueOf(d, 'pf_ratio');
-  if (pf) parts.push(`P/F ${formatNumber(pf.value, 0)}`);
+  if (pf) parts.push(kpa ? `P/F ${kpaNumber(pf.value)} kPa (${formatNumber(pf.value, 0)})` : `P/F ${formatNumber(pf.value, 0)}`);
   const show = (id: string, name: string, decimals: number, unit = '') => {
     const v = tp.values.get(id);
-    if (v?.stated.usable && v.stated.value !== null && v.origin.kind === 'here') parts.push(`${name} ${formatNumber(v.stated.value, decimals)}${unit}`);
+    if (!v?.stated.usable || v.stated.value === null || v.origin.kind !== 'here') return;
+    const inKpa = kpa ? statedInKpa(v.stated) : null;
+    parts.push(inKpa ? `${name} ${inKpa}` : `${name} ${formatNumber(v.stated.value, decimals)}${unit}`);
   };
   show('ph', 'pH', 2);
   show('paco2', 'PaCO2', 0);

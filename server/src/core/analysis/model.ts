@@ -76,4 +76,10 @@ export interface Timepoint {
   readonly values: ValuesInForce;
   /** Barometric pressure in force (stated, or from altitude), mmHg; null when no place is given. */
   readonly barometricMmhg: number | null;
+  /**
+   * The gas unit in force at the end of the timepoint: the last `units gas` of the header or of
+   * a timepoint up to this one, else the gasUnit setting. Bare gas numbers are read in it, and
+   * gas pressures are shown in it (values stay mmHg inside the core).
+   */
+  readonly gasUnit: 'mmHg' | 'kPa';
 }

@@ -244,8 +244,12 @@ interface ReadContextIn {
 }
 
 function readContext(state: CarryState, settings: Settings): ReadContextIn {
-  const gasUnit = (state.gasUnit?.stated.word as 'mmHg' | 'kPa' | undefined) ?? settings.gasUnit;
-  return { place: state.place, gasUnit: state.gasUnit, read: { gasUnit, barometricMmhg: barometricInForce(state.place, settings) } };
+  return { place: state.place, gasUnit: state.gasUnit, read: { gasUnit: gasUnitInForce(state, settings), barometricMmhg: barometricInForce(state.place, settings) } };
+}
+
+/** The gas unit bare numbers are read in: the last `units gas` held, else the setting. */
+function gasUnitInForce(state: CarryState, settings: Settings): 'mmHg' | 'kPa' {
+  return (state.gasUnit?.stated.word as 'mmHg' | 'kPa' | undefined) ?? settings.gasUnit;
 }
 
 function readLine(node: SectionLine, context: ReadContext, issues: ReadIssue[]): readonly StatedValue[] {
@@ -463,7 +467,7 @@ function freeze(b: { index: number; line: number | null; label: string; startLin
   // Kept as long as the timepoint: a copy of its exact length (an array grown by push keeps room to spare).
   const stated = b.stated.slice();
   const values = new ValuesAt(b.index, state, stated);
-  return { index: b.index, line: b.line, label: b.label, startLine: b.startLine, endLine, time: b.time, stated, values, barometricMmhg: barometricInForce(state.place, settings) };
+  return { index: b.index, line: b.line, label: b.label, startLine: b.startLine, endLine, time: b.time, stated, values, barometricMmhg: barometricInForce(state.place, settings), gasUnit: gasUnitInForce(state, settings) };
 }
 
 function originOf(held: Held, tp: number): Origin {

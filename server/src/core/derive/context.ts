@@ -300,7 +300,7 @@ class ComputedValue implements DerivedValue {
   readonly notes: readonly string[];
   readonly usesCarried: boolean;
   readonly line: number | null;
-  private readonly template: string;
+  readonly template: string;
   // An ES private field: not an own property, so comparing two values ignores whether it was built.
   #shown: string | null = null;
 
@@ -333,8 +333,13 @@ class ComputedValue implements DerivedValue {
   }
 }
 
-/** Puts each term's value in place of `{name}` in a formula template. */
-export function substitute(template: string, terms: readonly Term[]): string {
+/** A term's number as a formula shows it. */
+function termNumber(t: Term): string {
+  return formatNumber(t.value, t.decimals);
+}
+
+/** Puts each term's value (as `show` writes it) in place of `{name}` in a formula template. */
+export function substitute(template: string, terms: readonly Term[], show: (t: Term) => string = termNumber): string {
   let out = '';
   let i = 0;
   while (i < template.length) {
@@ -345,7 +350,7 @@ export function substitute(template: string, terms: readonly Term[]): string {
     out += template.slice(i, open);
     const name = template.slice(open + 1, close);
     const term = terms.find((t) => t.name === name);
-    out += term ? formatNumber(term.value, term.decimals) : name;
+    out += term ? show(term) : name;
     i = close + 1;
   }
   return out;

@@ -38,6 +38,8 @@ export interface DerivedValue {
   readonly formula: string;
   /** The formula with the actual numbers, e.g. `71 ÷ 0.40 = 178`. */
   readonly substituted: string;
+  /** The formula template the numbers are put into: input names in braces, e.g. `{PaO2} ÷ {FiO2}`. */
+  readonly template: string;
   readonly inputs: readonly Term[];
   readonly source: string;
   /** An estimate by a rough rule (e.g. FiO2 from a cannula's flow). */

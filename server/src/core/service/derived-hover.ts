@@ -2,23 +2,132 @@
  * The markdown explanation of one derived value, shared by hovers and inlay-hint tooltips:
  * what it is, its value, the formula in words and with the numbers, every input with where it
  * came from, notes, the source, and the caution line.
+ *
+ * Given the timepoint, gas pressures follow the gas unit in force there: in a kPa note they are
+ * shown in kPa first with mmHg in parentheses (`28.2 kPa (212 mmHg)`). A formula whose arithmetic
+ * holds in any pressure unit (no constant in it: P/F, PiO2, PAO2, A–a, a/A) is written out in
+ * kPa, with the numbers as the note wrote them; any other formula is written out in mmHg, as it
+ * is computed, and says so, with the conversion of each input the note wrote in kPa.
  */
-import { describeInputOrigin } from '../derive/context';
+import type { InputValue, Timepoint } from '../analysis/model';
+import { describeInputOrigin, substitute } from '../derive/context';
 import type { DerivedValue, Term } from '../derive/model';
 import { derivedDef } from '../derive/registry';
+import { isKpaField, kpaNumber, showsKpa, statedInKpa, statedNumber } from '../present';
 import { formatNumber } from '../util/format';
 import { cautionLine, code, escapeMarkdown, paragraphs } from './markdown';
 
-/** `178 mmHg`, `23–27 mmol/L`, `0.33`: the value as shown. */
-export function derivedValueText(d: DerivedValue): string {
-  const number = d.range ? `${formatNumber(d.range.low, d.decimals)}–${formatNumber(d.range.high, d.decimals)}` : formatNumber(d.value, d.decimals);
+/** A value's number, or its span (`23–27`), in its own unit (mmHg for a gas pressure). */
+function numberText(d: DerivedValue): string {
+  return d.range ? `${formatNumber(d.range.low, d.decimals)}–${formatNumber(d.range.high, d.decimals)}` : formatNumber(d.value, d.decimals);
+}
+
+/** The same in kPa (a gas pressure). */
+function kpaText(d: DerivedValue): string {
+  return d.range ? `${kpaNumber(d.range.low)}–${kpaNumber(d.range.high)}` : kpaNumber(d.value);
+}
+
+/** Whether a derived value is a gas pressure shown in kPa first at this timepoint. */
+export function derivedInKpa(d: DerivedValue, tp: Timepoint | null | undefined): boolean {
+  return d.unit === 'mmHg' && showsKpa(tp);
+}
+
+/**
+ * `178 mmHg`, `23–27 mmol/L`, `0.33`: the value as shown; at a timepoint whose gas unit is kPa,
+ * a gas pressure is `23.7 kPa (178 mmHg)`.
+ */
+export function derivedValueText(d: DerivedValue, tp: Timepoint | null = null): string {
+  const number = numberText(d);
+  if (derivedInKpa(d, tp)) return `${kpaText(d)} kPa (${number} mmHg)`;
   return d.unit ? `${number} ${d.unit}` : number;
 }
 
-/** `PaO2 71 mmHg`: an input as shown. */
-export function termText(t: Term): string {
+/** A formula input that is a gas pressure (PaO2, PaCO2, PB, PH2O, a derived PAO2), in mmHg. */
+function isGasTerm(t: Term): boolean {
+  return t.unit === 'mmHg' && (t.fieldId === undefined || isKpaField(t.fieldId));
+}
+
+/** The stated value an input was read from, when it is one of the timepoint's values in force. */
+function statedOfTerm(t: Term, tp: Timepoint): InputValue | undefined {
+  if (t.fieldId === undefined || t.origin.kind === 'derived' || t.origin.kind === 'default') return undefined;
+  return tp.values.get(t.fieldId);
+}
+
+/** A gas-pressure input's number in kPa: as the note wrote it where it was written in kPa. */
+function termKpa(t: Term, tp: Timepoint): string {
+  const input = statedOfTerm(t, tp);
+  const written = input ? statedInKpa(input.stated) : null;
+  return written ? written.slice(0, -' kPa'.length) : kpaNumber(t.value);
+}
+
+/** `PaO2 71 mmHg`: an input as shown; at a kPa timepoint, a gas pressure is `PaO2 9.5 kPa (71 mmHg)`. */
+export function termText(t: Term, tp: Timepoint | null = null): string {
+  const note = t.note ? ` (${t.note})` : '';
+  if (tp && showsKpa(tp) && isGasTerm(t)) return `${t.name} ${termKpa(t, tp)} kPa (${formatNumber(t.value, t.decimals)} mmHg)${note}`;
   const unit = t.unit ? ` ${t.unit}` : '';
-  return `${t.name} ${formatNumber(t.value, t.decimals)}${unit}${t.note ? ` (${t.note})` : ''}`;
+  return `${t.name} ${formatNumber(t.value, t.decimals)}${unit}${note}`;
+}
+
+/**
+ * Whether a formula's arithmetic holds in kPa as well as in mmHg: it has no number of its own
+ * (a constant may carry a unit: 760 mmHg, 0.003 mL/dL per mmHg) and every input and the result
+ * is a gas pressure or a plain ratio. Then every gas pressure scales alike.
+ */
+function holdsInKpa(d: DerivedValue): boolean {
+  if (d.unit !== 'mmHg' && d.unit !== '') return false;
+  let gas = d.unit === 'mmHg';
+  for (const t of d.inputs) {
+    if (isGasTerm(t)) gas = true;
+    else if (t.unit !== '') return false;
+  }
+  return gas && !numberOutsideBraces(d.template);
+}
+
+function numberOutsideBraces(template: string): boolean {
+  let depth = 0;
+  for (let i = 0; i < template.length; i++) {
+    const c = template.charCodeAt(i);
+    if (c === 0x7b) depth++;
+    else if (c === 0x7d) depth = Math.max(0, depth - 1);
+    else if (depth === 0 && c >= 0x30 && c <= 0x39) return true;
+  }
+  return false;
+}
+
+/** Whether the value or any of its inputs is a gas pressure shown in kPa first at this timepoint. */
+function touchesKpa(d: DerivedValue, tp: Timepoint | null): tp is Timepoint {
+  return showsKpa(tp) && (d.unit === 'mmHg' || d.inputs.some(isGasTerm));
+}
+
+/**
+ * The formula with the numbers put in, for the timepoint: `7.9 ÷ 0.28 = 28.2 kPa (212 mmHg)` in
+ * a kPa note (the formula holds in kPa), `0.0307 × 68 × 10^(7.28 − 6.1) = 31.7 mmol/L` (computed
+ * in mmHg: see `substitutedUnitNote`), `71 ÷ 4 + 4 = 22 mmHg = 2.9 kPa`. Unchanged in an mmHg note.
+ */
+export function substitutedText(d: DerivedValue, tp: Timepoint | null = null): string {
+  if (!touchesKpa(d, tp)) return d.substituted;
+  if (holdsInKpa(d)) {
+    const left = substitute(d.template, d.inputs, (t) => (isGasTerm(t) ? termKpa(t, tp) : formatNumber(t.value, t.decimals)));
+    return `${left} = ${derivedValueText(d, tp)}`;
+  }
+  return d.unit === 'mmHg' ? `${d.substituted} = ${kpaText(d)} kPa` : d.substituted;
+}
+
+/**
+ * For a formula written out in mmHg at a kPa timepoint: `in mmHg (PaCO2 9.1 kPa = 68 mmHg)`, the
+ * conversion of each input the note wrote in kPa; null when the formula is written out in kPa
+ * or the note is in mmHg.
+ */
+export function substitutedUnitNote(d: DerivedValue, tp: Timepoint | null = null): string | null {
+  if (!touchesKpa(d, tp) || holdsInKpa(d)) return null;
+  const converted: string[] = [];
+  for (const t of d.inputs) {
+    if (!isGasTerm(t)) continue;
+    const input = statedOfTerm(t, tp);
+    if (!input || input.stated.readUnit !== 'kPa') continue;
+    converted.push(`${t.name} ${statedInKpa(input.stated) ?? ''} = ${statedNumber(input.stated) ?? formatNumber(t.value, t.decimals)} mmHg`);
+  }
+  return converted.length > 0 ? `in mmHg (${converted.join(', ')})` : 'in mmHg';
 }
 
 /** Where an input came from; a derived input is named by its label rather than its id. */
@@ -29,11 +138,13 @@ function originText(t: Term): string {
 }
 
 /** The body of a derived value's explanation, without the caution line. */
-export function derivedBody(d: DerivedValue, options: { readonly carriedSentence?: boolean } = {}): string {
-  const head = `**${escapeMarkdown(d.label)}** (${escapeMarkdown(d.short)}): **${escapeMarkdown(derivedValueText(d))}**${d.estimate ? ' — _estimate_' : ''}`;
-  const formula = `Formula: ${code(d.formula)}  \nWith the numbers: ${code(d.substituted)}`;
+export function derivedBody(d: DerivedValue, options: { readonly carriedSentence?: boolean; readonly timepoint?: Timepoint | null } = {}): string {
+  const tp = options.timepoint ?? null;
+  const head = `**${escapeMarkdown(d.label)}** (${escapeMarkdown(d.short)}): **${escapeMarkdown(derivedValueText(d, tp))}**${d.estimate ? ' — _estimate_' : ''}`;
+  const unitNote = substitutedUnitNote(d, tp);
+  const formula = `Formula: ${code(d.formula)}  \nWith the numbers${unitNote ? `, ${escapeMarkdown(unitNote)}` : ''}: ${code(substitutedText(d, tp))}`;
   const inputs = d.inputs.length > 0
-    ? `Inputs:\n${d.inputs.map((t) => `- ${escapeMarkdown(termText(t))} — ${escapeMarkdown(originText(t))}`).join('\n')}`
+    ? `Inputs:\n${d.inputs.map((t) => `- ${escapeMarkdown(termText(t, tp))} — ${escapeMarkdown(originText(t))}`).join('\n')}`
     : null;
   const noteText = d.notes.map((n) => escapeMarkdown(n)).join('; ');
   const notes = noteText ? `Notes: ${noteText}${noteText.endsWith('.') ? '' : '.'}` : null;
@@ -41,7 +152,7 @@ export function derivedBody(d: DerivedValue, options: { readonly carriedSentence
   return paragraphs([head, formula, inputs, notes, carried, `Source: ${escapeMarkdown(d.source)}`]);
 }
 
-/** Markdown explanation of one derived value, ending with the caution line. */
-export function derivedHover(d: DerivedValue): string {
-  return paragraphs([derivedBody(d), cautionLine()]);
+/** Markdown explanation of one derived value, ending with the caution line; gas pressures as at `timepoint`. */
+export function derivedHover(d: DerivedValue, timepoint: Timepoint | null = null): string {
+  return paragraphs([derivedBody(d, { timepoint }), cautionLine()]);
 }

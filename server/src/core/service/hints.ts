@@ -1,6 +1,7 @@
 /**
  * Inlay hints: at the end of a line's content (before a trailing comment), the few derived
- * values that matter for that line, compact: `P/F 178 · A–a 24 (≤ 20)` after a gas,
+ * values that matter for that line, compact: `P/F 178 · A–a 24 (≤ 20)` after a gas (in a note
+ * whose gas unit is kPa, gas pressures in kPa first: `P/F 23.7 kPa (178) · A–a 3.2 kPa (24), ≤ 2.7`),
  * `ΔP 17 · VT 6.7 mL/kg · Cstat 25` after a vent line with a plateau, `PB 628 mmHg` after a
  * place line with an altitude, `FiO2 ≈ 0.33 (est.)` after a low-flow oxygen line, and a short
  * acid–base reading (`resp. acidosis, acute`). A value that uses an input carried forward from
@@ -10,10 +11,12 @@
  * position starts with `· ` so that the hints read as one list. To show one more value, add a
  * row to HINT_PICKS.
  */
+import type { Timepoint } from '../analysis/model';
 import type { NoteResult } from '../check-note';
 import type { DerivedValue, Interpretation, Term, TimepointDerivation } from '../derive/model';
+import { kpaNumber } from '../present';
 import { formatNumber } from '../util/format';
-import { derivedBody, termText } from './derived-hover';
+import { derivedBody, derivedInKpa, termText } from './derived-hover';
 import { contentEnd, lineAt } from './locate';
 import { cautionLine, escapeMarkdown, paragraphs } from './markdown';
 import { describeInputOrigin } from '../derive/context';
@@ -29,10 +32,15 @@ export const CARRIED_MARK = '*';
 
 interface Pick {
   readonly id: string;
-  /** The compact text; `n` is the number (with the carried mark when it applies). */
-  readonly text: (n: string, d: DerivedValue, all: readonly DerivedValue[]) => string | null;
+  /**
+   * The compact text; `n` is the number (with the carried mark when it applies), for a gas
+   * pressure where the gas unit is kPa `23.7 kPa (178)` (then `kpa` is true).
+   */
+  readonly text: (n: string, d: DerivedValue, all: readonly DerivedValue[], kpa: boolean) => string | null;
   /** The line the hint goes after, when not the derived value's own line. */
   readonly line?: (d: DerivedValue) => number | null;
+  /** Whether `n` carries the unit in an mmHg note too (`PB 628 mmHg`; `P/F 178` has none). */
+  readonly unit?: boolean;
 }
 
 /** The values shown, by category, in display order. */
@@ -43,9 +51,11 @@ export const HINT_PICKS: Readonly<Record<HintCategory, readonly Pick[]>> = {
     { id: 'pf_ratio_altitude_adjusted', text: (n) => `P/F adj. ${n}` },
     {
       id: 'aa_gradient',
-      text: (n, _d, all) => {
+      text: (n, _d, all, kpa) => {
         const upper = all.find((v) => v.id === 'aa_gradient_upper_normal');
-        return upper ? `A–a ${n} (≤ ${formatNumber(upper.value, upper.decimals)})` : `A–a ${n}`;
+        if (!upper) return `A–a ${n}`;
+        // In kPa the parentheses hold the mmHg number, so the upper normal follows a comma.
+        return kpa ? `A–a ${n}, ≤ ${kpaNumber(upper.value)}` : `A–a ${n} (≤ ${formatNumber(upper.value, upper.decimals)})`;
       },
     },
     { id: 'sf_ratio', text: (n) => `S/F ${n}` },
@@ -62,7 +72,7 @@ export const HINT_PICKS: Readonly<Record<HintCategory, readonly Pick[]>> = {
   ],
   atmosphere: [
     // After the place line that gives the altitude, also in the header (a stated pressure needs no hint).
-    { id: 'barometric', text: (n) => `PB ${n} mmHg`, line: altitudeLine },
+    { id: 'barometric', text: (n) => `PB ${n}`, line: altitudeLine, unit: true },
   ],
   transport: [
     { id: 'cao2', text: (n) => `CaO2 ${n}` },
@@ -93,6 +103,7 @@ interface Entry {
   readonly values: readonly DerivedValue[];
   readonly reading: Interpretation | null;
   readonly derivation: TimepointDerivation;
+  readonly timepoint: Timepoint;
 }
 
 export function inlayHints(result: NoteResult, lines: LineSpan, options: HintOptions): InlayHintInfo[] {
@@ -135,7 +146,7 @@ export function inlayHints(result: NoteResult, lines: LineSpan, options: HintOpt
           const label = acidBaseLabel(reading.text);
           if (!label) continue;
           const detail = all.filter((d) => ACID_BASE_DETAIL.includes(d.id) && d.line === reading.line);
-          add(reading.line, category, { label, values: detail, reading, derivation });
+          add(reading.line, category, { label, values: detail, reading, derivation, timepoint: tp });
         }
       }
       for (const pick of HINT_PICKS[category]) {
@@ -143,11 +154,12 @@ export function inlayHints(result: NoteResult, lines: LineSpan, options: HintOpt
           if (d.id !== pick.id) continue;
           const line = pick.line ? pick.line(d) : d.line;
           if (!inRange(line) || shown.has(`${line}:${d.id}`)) continue;
-          const n = `${formatNumber(d.value, d.decimals)}${d.usesCarried ? CARRIED_MARK : ''}`;
-          const label = pick.text(n, d, all.filter((v) => v.line === d.line));
+          const kpa = derivedInKpa(d, tp);
+          const n = `${hintNumber(d, kpa, pick.unit === true)}${d.usesCarried ? CARRIED_MARK : ''}`;
+          const label = pick.text(n, d, all.filter((v) => v.line === d.line), kpa);
           if (!label) continue;
           shown.add(`${line}:${d.id}`);
-          add(line, category, { label, values: [d], reading: null, derivation });
+          add(line, category, { label, values: [d], reading: null, derivation, timepoint: tp });
         }
       }
     }
@@ -175,6 +187,13 @@ export function inlayHints(result: NoteResult, lines: LineSpan, options: HintOpt
     }
   }
   return hints;
+}
+
+/** `178`, `628 mmHg` (with `unit`), or for a gas pressure in kPa `23.7 kPa (178)`. */
+function hintNumber(d: DerivedValue, kpa: boolean, unit: boolean): string {
+  const number = formatNumber(d.value, d.decimals);
+  if (kpa) return `${kpaNumber(d.value)} kPa (${number})`;
+  return unit && d.unit ? `${number} ${d.unit}` : number;
 }
 
 /** A hint whose tooltip is written when first read (clients that resolve tooltips read few). */
@@ -205,9 +224,9 @@ function tooltip(entries: readonly Entry[]): string {
     for (const d of e.values) {
       const carried = carriedInputs(d, e.derivation);
       const mark = carried.length > 0
-        ? `${escapeMarkdown(CARRIED_MARK)} ${escapeMarkdown(d.short)} uses ${carried.length === 1 ? 'a value' : 'values'} carried forward from an earlier timepoint:\n${carried.map((t) => `- ${escapeMarkdown(termText(t))} — ${escapeMarkdown(describeInputOrigin(t.origin))}`).join('\n')}`
+        ? `${escapeMarkdown(CARRIED_MARK)} ${escapeMarkdown(d.short)} uses ${carried.length === 1 ? 'a value' : 'values'} carried forward from an earlier timepoint:\n${carried.map((t) => `- ${escapeMarkdown(termText(t, e.timepoint))} — ${escapeMarkdown(describeInputOrigin(t.origin))}`).join('\n')}`
         : null;
-      parts.push(paragraphs([derivedBody(d, { carriedSentence: mark === null }), mark]));
+      parts.push(paragraphs([derivedBody(d, { carriedSentence: mark === null, timepoint: e.timepoint }), mark]));
     }
   }
   return paragraphs([parts.join('\n\n---\n\n'), cautionLine()]);

@@ -13,7 +13,7 @@ import type { DerivedValue, TimepointDerivation } from '../derive/model';
 import { derivedDef } from '../derive/registry';
 import { fieldFor, fieldsInSection, type FieldDef } from '../fields/registry';
 import { sectionById, type SectionId } from '../fields/sections';
-import { describeInput, formatAlternative, formatStated } from '../present';
+import { describeInput, formatAlternative, formatStated, showsKpa, statedInKpa } from '../present';
 import type { SectionLine, TimepointLine } from '../syntax/tree';
 import type { Position } from '../types';
 import { formatNumber, formatShort } from '../util/format';
@@ -85,7 +85,7 @@ function fieldMarkdown(result: NoteResult, node: SectionLine, hit: ItemHit): str
   const head = `**${escapeMarkdown(field.label)}** — ${keyWords} on this ${code(node.section)} line`;
   const parts: (string | null)[] = [head, escapeMarkdown(field.description)];
   if (stated) {
-    parts.push(valueText(stated), unitText(result, stated, field), originText(result, stated), usableText(stated), feedsText(result, stated));
+    parts.push(valueText(stated, timepointOfLine(result, stated.line)), unitText(result, stated, field), originText(result, stated), usableText(stated), feedsText(result, stated));
   } else if (hit.item.value) {
     parts.push(`${code(hit.item.value.text)} could not be read as ${escapeMarkdown(field.label)}.`);
   }
@@ -104,9 +104,15 @@ function alternativeText(s: StatedValue): string | null {
   return formatAlternative(s);
 }
 
-function valueText(s: StatedValue): string {
+/**
+ * `Value: **71 mmHg** = 9.5 kPa`; at a timepoint whose gas unit is kPa, a gas pressure in kPa
+ * first: `Value: **9.5 kPa** = 71 mmHg`.
+ */
+function valueText(s: StatedValue, tp: Timepoint | null): string {
   if (s.word !== null) return `Value: **${escapeMarkdown(s.word)}**`;
   if (s.value === null && !s.parts) return `Value: ${code(s.item.value?.text ?? '')} (not read)`;
+  const kpa = showsKpa(tp) ? statedInKpa(s) : null;
+  if (kpa) return `Value: **${escapeMarkdown(kpa)}** = ${escapeMarkdown(formatStated(s))}`;
   const shown = formatStated(s);
   const alt = alternativeText(s);
   const asFraction = s.unit === 'fraction' ? ' (a fraction)' : '';
@@ -167,7 +173,7 @@ function feedsText(result: NoteResult, s: StatedValue): string | null {
   if (!derivation) return null;
   const uses = derivation.derived.filter((d) => d.inputs.some((t) => t.fieldId === s.fieldId && t.origin.kind !== 'derived' && t.origin.kind !== 'default' && t.origin.line === s.line));
   if (uses.length === 0) return null;
-  return `Used here for: ${uses.map((d) => `${escapeMarkdown(d.short)} ${escapeMarkdown(derivedValueText(d))}`).join(' · ')}`;
+  return `Used here for: ${uses.map((d) => `${escapeMarkdown(d.short)} ${escapeMarkdown(derivedValueText(d, tp))}`).join(' · ')}`;
 }
 
 function carryText(field: FieldDef, section: SectionId): string {
@@ -206,9 +212,9 @@ function timeParagraph(node: TimepointLine, tp: Timepoint | null): string {
   return `Time: ${clockText(t.minutes)} (${offset}${since}).`;
 }
 
-function derivedLine(d: DerivedValue): string {
+function derivedLine(d: DerivedValue, tp: Timepoint): string {
   const marks = [d.estimate ? 'estimate' : null, d.usesCarried ? 'uses a carried value' : null].filter((m): m is string => m !== null);
-  return `- ${escapeMarkdown(d.label)} (${escapeMarkdown(d.short)}): **${escapeMarkdown(derivedValueText(d))}**${marks.length > 0 ? ` — _${marks.join(', ')}_` : ''}`;
+  return `- ${escapeMarkdown(d.label)} (${escapeMarkdown(d.short)}): **${escapeMarkdown(derivedValueText(d, tp))}**${marks.length > 0 ? ` — _${marks.join(', ')}_` : ''}`;
 }
 
 /** `add fio2 to get PiO2, PAO2, P/F`: missing values grouped by what to add. */
@@ -232,11 +238,11 @@ function timepointHover(result: NoteResult, node: TimepointLine, start: number, 
     const carried = [...tp.values.values()]
       .filter((v) => v.origin.kind === 'carried' || v.origin.kind === 'header')
       .sort((a, b) => a.stated.line - b.stated.line || a.stated.item.span.start - b.stated.item.span.start);
-    parts.push(carried.length > 0 ? `**Carried into this timepoint**\n${carried.map((v) => `- ${escapeMarkdown(describeInput(v))}`).join('\n')}` : 'Nothing carried in from earlier timepoints or the header.');
+    parts.push(carried.length > 0 ? `**Carried into this timepoint**\n${carried.map((v) => `- ${escapeMarkdown(describeInput(v, tp))}`).join('\n')}` : 'Nothing carried in from earlier timepoints or the header.');
     const derivation = derivationOf(result, tp);
     if (derivation) {
       const shown = derivation.derived.filter((d) => d.id !== 'barometric' || d.inputs[0]?.origin.kind !== 'default');
-      if (shown.length > 0) parts.push(`**Derived here**\n${shown.map(derivedLine).join('\n')}`);
+      if (shown.length > 0) parts.push(`**Derived here**\n${shown.map((d) => derivedLine(d, tp)).join('\n')}`);
       if (derivation.interpretations.length > 0) parts.push(`**Readings**\n${derivation.interpretations.map((i) => `- ${escapeMarkdown(i.text)}`).join('\n')}`);
       const missing = missingGroups(derivation);
       if (missing.length > 0) parts.push(`**Could be derived**\n${missing.map((m) => `- ${escapeMarkdown(m)}`).join('\n')}`);
