@@ -38,6 +38,8 @@ describe('the column list', () => {
       'compliance_static_mL_cmH2O', 'compliance_dynamic_mL_cmH2O', 'airway_resistance_cmH2O_L_s', 'mechanical_power_J_min', 'ventilatory_ratio',
       'cao2_mL_dL', 'do2_mL_min',
       'carried_fields', 'findings_errors', 'findings_warnings', 'findings_information',
+      // Added later: after every earlier column.
+      'mechanical_power_surrogate_J_min',
     ]);
   });
 
