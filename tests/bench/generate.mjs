@@ -1,7 +1,8 @@
 // Generates invented notes for benchmarks, shaped like a long intensive-care record: a timepoint
 // every hour with observations, ventilator readings every other hour, a blood gas every third
 // hour, settings changed now and then, labs and remarks from time to time. About five lines per
-// timepoint. No real data: every value comes from a seeded generator; gases are self-consistent.
+// timepoint. No real data: every value comes from a seeded generator; gases are self-consistent, and
+// the measured rate is never below the set one.
 const REMARKS = ['turned and settled', 'suctioned: small white secretions', 'family visited', 'sedation unchanged', 'chest clear on the right, crackles left base', 'tolerating feeds'];
 
 export function generateNote(timepoints, seed = 1) {
@@ -11,14 +12,17 @@ export function generateNote(timepoints, seed = 1) {
   const fixed = (v, d = 0) => v.toFixed(d);
   const lines = ['# generated benchmark note (invented values)', 'patient   age 61 y, sex male, height 176 cm, weight 80 kg', 'place     altitude 300 m', ''];
   let peep = 8;
+  let rate = 0;
   for (let i = 0; i < timepoints; i++) {
     const day = 1 + Math.floor(i / 24);
     lines.push(`@ day ${day} ${String(i % 24).padStart(2, '0')}:00  hour ${i + 1}`);
     if (i % 12 === 0) {
       peep = Math.round(between(6, 12));
-      lines.push(`vent      mode VC, vt ${fixed(between(380, 480))} mL, rate ${fixed(between(14, 22))}, peep ${peep}, fio2 ${fixed(between(0.3, 0.6), 2)}, flow 60 L/min`);
+      const vt = between(380, 480);
+      rate = Math.round(between(14, 22));
+      lines.push(`vent      mode VC, vt ${fixed(vt)} mL, rate ${rate}, peep ${peep}, fio2 ${fixed(between(0.3, 0.6), 2)}, flow 60 L/min`);
     }
-    lines.push(`vitals    hr ${fixed(between(60, 110))}, rr ${fixed(between(14, 24))}, spo2 ${fixed(between(92, 99))} %, temp ${fixed(between(36.2, 38.2), 1)} C, bp ${fixed(between(100, 140))}/${fixed(between(55, 85))}`);
+    lines.push(`vitals    hr ${fixed(between(60, 110))}, rr ${fixed(Math.max(rate, between(14, 24)))}, spo2 ${fixed(between(92, 99))} %, temp ${fixed(between(36.2, 38.2), 1)} C, bp ${fixed(between(100, 140))}/${fixed(between(55, 85))}`);
     if (i % 2 === 0) lines.push(`vent      plateau ${fixed(between(peep + 8, peep + 14))}, peak ${fixed(between(peep + 16, peep + 21))}, map ${fixed(between(10, 16))}`);
     if (i % 3 === 0) {
       const paco2 = Math.round(between(36, 46));
