@@ -16,7 +16,10 @@ describe('formatAgainst', () => {
     expect(formatAgainst(50.25, 0, 50)).toBe('50.3');
     expect(formatAgainst(60, 0, 60)).toBe('60');
     expect(formatAgainst(59.96, 0, 60)).toBe('59.96');
-    expect(decimalsAgainst(32.5, 0, [33])).toBe(1);
+    expect(decimalsAgainst(32.5, 0, 33)).toBe(1);
+    expect(decimalsAgainst(40.2, 0, 45, 50, 35)).toBe(0);
+    expect(decimalsAgainst(40.2, 0, 40, 45, 50, 35)).toBe(1);
+    expect(decimalsAgainst(34.6, 0, 50, 45, 35)).toBe(1);
   });
 
   it('keeps a value that is on a threshold on paper on it (114 / 0.57 = 200)', () => {
