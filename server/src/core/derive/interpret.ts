@@ -8,6 +8,7 @@ import { BERLIN_BAND_SEVERITY, berlinOxygenationBand, type AcidBaseClassificatio
 import { forBand } from '../physiology/numeric';
 import type { Settings } from '../settings';
 import { formatAgainst, formatNumber, formatShort, rangeAgainst } from '../util/format';
+import { KPA_DECIMALS, kpaFromMmhg, kpaNumber, showsKpa } from '../present';
 import { classification } from './acid-base';
 import type { DeriveContext } from './context';
 import type { Interpretation } from './model';
@@ -33,6 +34,45 @@ const DISORDER_WORDS: Readonly<Record<AcidBaseDisorder, string>> = {
   'respiratory-alkalosis': 'respiratory alkalosis',
 };
 
+/**
+ * How a reading writes gas pressures: in mmHg, or where the note's gas unit is kPa, in kPa first
+ * with mmHg in brackets (`PaO2 7.9 kPa (59 mmHg)`), as hints and hovers do. Thresholds and ranges
+ * are then in kPa. Every number takes the decimals that keep it on its side of the thresholds
+ * it is read against (mmHg arguments; NaN: none).
+ */
+class GasWords {
+  constructor(readonly kpa: boolean) {}
+
+  /** A pressure: `59 mmHg`, or `7.9 kPa (59 mmHg)`. */
+  value(mmHg: number, t1 = NaN, t2 = NaN, t3 = NaN): string {
+    const inMmhg = `${formatAgainst(mmHg, 0, t1, t2, t3)} mmHg`;
+    if (!this.kpa) return inMmhg;
+    return `${formatAgainst(kpaFromMmhg(mmHg), KPA_DECIMALS, kpaFromMmhg(t1), kpaFromMmhg(t2), kpaFromMmhg(t3))} kPa (${inMmhg})`;
+  }
+
+  /** A pressure where the unit follows elsewhere: `33`, or `4.4 kPa (33 mmHg)`. */
+  observed(mmHg: number, t1 = NaN): string {
+    return this.kpa ? this.value(mmHg, t1) : formatAgainst(mmHg, 0, t1);
+  }
+
+  /** A threshold read against `value`: `60 mmHg`, or `8.0 kPa`. */
+  threshold(mmHg: number, value = NaN): string {
+    if (!this.kpa) return `${formatShort(mmHg)} mmHg`;
+    return `${formatAgainst(kpaFromMmhg(mmHg), KPA_DECIMALS, kpaFromMmhg(value))} kPa`;
+  }
+
+  /** A limit's number alone, read against `value`: `40`, `13`, or `5.3`. */
+  number(mmHg: number, value = NaN): string {
+    return this.kpa ? formatAgainst(kpaFromMmhg(mmHg), KPA_DECIMALS, kpaFromMmhg(value)) : formatAgainst(mmHg, 0, value);
+  }
+
+  /** A range with its unit, ends shown against `observed`: `28.5–32.5 mmHg`, or `3.8–4.3 kPa`. */
+  range(low: number, high: number, observed: number): string {
+    if (!this.kpa) return `${rangeAgainst(low, high, 0, observed)} mmHg`;
+    return `${rangeAgainst(kpaFromMmhg(low), kpaFromMmhg(high), KPA_DECIMALS, kpaFromMmhg(observed))} kPa`;
+  }
+}
+
 export function interpret(c: DeriveContext, settings: Settings): Interpretation[] {
   const out: Interpretation[] = [];
   const gasHere = c.statedHere('pao2') || c.statedHere('paco2') || c.statedHere('ph');
@@ -41,6 +81,7 @@ export function interpret(c: DeriveContext, settings: Settings): Interpretation[
   const paco2 = c.field('paco2', 'PaCO2');
   const line = (pao2 ?? paco2)?.origin.kind === 'here' ? ((pao2 ?? paco2)!.origin as { line: number }).line : null;
   const push = (topic: Interpretation['topic'], text: string, basis: string[], notable = true) => out.push({ topic, text, basis, line, notable });
+  const gas = new GasWords(showsKpa(c.timepoint));
 
   const hypoxaemic = pao2 !== null && pao2.value < settings.hypoxaemiaBelowMmhg;
   const hypercapnic = paco2 !== null && paco2.value > settings.hypercapniaAboveMmhg;
@@ -57,13 +98,13 @@ export function interpret(c: DeriveContext, settings: Settings): Interpretation[
     const hypoxaemiaAt = settings.hypoxaemiaBelowMmhg;
     if (hypoxaemic) {
       const grade = pao2.value < SEVERE_HYPOXAEMIA_MMHG ? 'severe' : 'moderate';
-      push('oxygenation', `PaO2 ${formatAgainst(pao2.value, 0, hypoxaemiaAt, SEVERE_HYPOXAEMIA_MMHG)} mmHg: consistent with ${grade} hypoxaemia (below ${formatShort(hypoxaemiaAt)} mmHg${grade === 'severe' ? `, and below ${SEVERE_HYPOXAEMIA_MMHG}` : ''})${onOxygen ? ` despite FiO2 ${formatNumber(fio2.value, 2)}` : ''}.`, ['pao2']);
+      push('oxygenation', `PaO2 ${gas.value(pao2.value, hypoxaemiaAt, SEVERE_HYPOXAEMIA_MMHG)}: consistent with ${grade} hypoxaemia (below ${gas.threshold(hypoxaemiaAt, pao2.value)}${grade === 'severe' ? `, and below ${gas.number(SEVERE_HYPOXAEMIA_MMHG, pao2.value)}` : ''})${onOxygen ? ` despite FiO2 ${formatNumber(fio2.value, 2)}` : ''}.`, ['pao2']);
     } else if (onOxygen && pf && forBand(pf.value) <= 300) {
-      push('oxygenation', `PaO2 ${formatAgainst(pao2.value, 0, hypoxaemiaAt)} mmHg on FiO2 ${formatNumber(fio2.value, 2)} (P/F ${formatAgainst(pf.value, 0, 300)}): consistent with impaired oxygenation supported by oxygen.`, ['pao2', 'pf_ratio']);
+      push('oxygenation', `PaO2 ${gas.value(pao2.value, hypoxaemiaAt)} on FiO2 ${formatNumber(fio2.value, 2)} (P/F ${gas.kpa ? `${kpaNumber(pf.value)} kPa, ` : ''}${formatAgainst(pf.value, 0, 300)}${gas.kpa ? ' mmHg' : ''}): consistent with impaired oxygenation supported by oxygen.`, ['pao2', 'pf_ratio']);
     } else if (pao2.value < LOW_NORMAL_PAO2_MMHG) {
-      push('oxygenation', `PaO2 ${formatAgainst(pao2.value, 0, hypoxaemiaAt, LOW_NORMAL_PAO2_MMHG)} mmHg: consistent with mildly reduced oxygenation, above the hypoxaemia threshold of ${formatShort(hypoxaemiaAt)} mmHg.`, ['pao2'], false);
+      push('oxygenation', `PaO2 ${gas.value(pao2.value, hypoxaemiaAt, LOW_NORMAL_PAO2_MMHG)}: consistent with mildly reduced oxygenation, above the hypoxaemia threshold of ${gas.threshold(hypoxaemiaAt, pao2.value)}.`, ['pao2'], false);
     } else {
-      push('oxygenation', `PaO2 ${formatAgainst(pao2.value, 0, LOW_NORMAL_PAO2_MMHG)} mmHg${onOxygen ? ` on FiO2 ${formatNumber(fio2.value, 2)}` : ''}: consistent with adequate arterial oxygenation.`, ['pao2'], false);
+      push('oxygenation', `PaO2 ${gas.value(pao2.value, LOW_NORMAL_PAO2_MMHG)}${onOxygen ? ` on FiO2 ${formatNumber(fio2.value, 2)}` : ''}: consistent with adequate arterial oxygenation.`, ['pao2'], false);
     }
     // Berlin oxygenation band: only with PEEP or CPAP ≥ 5 cmH2O; an oxygenation band, never a diagnosis.
     const peep = c.peepLike();
@@ -73,7 +114,9 @@ export function interpret(c: DeriveContext, settings: Settings): Interpretation[
       const band = berlinOxygenationBand(pfForBand.value);
       if (band) {
         const words = band === 'pf-200-to-300' ? '200–300' : band === 'pf-100-to-200' ? '100–200' : '≤ 100';
-        push('oxygenation-band', `P/F ${formatAgainst(pfForBand.value, 0, 100, 200, 300)}${adjusted ? ' (adjusted for altitude)' : ''} with ${peep.name} ${formatAgainst(peep.value, 0, BERLIN_MIN_PEEP_CMH2O)} cmH2O: consistent with the ${words} oxygenation band of the Berlin definition (the band called ${BERLIN_BAND_SEVERITY[band]} there) — an oxygenation band, not a diagnosis.`, [adjusted ? 'pf_ratio_altitude_adjusted' : 'pf_ratio', peep.fieldId ?? 'peep']);
+        // The bands are defined in mmHg: a kPa note gets the P/F in both units and the band's unit named.
+        const pfShown = formatAgainst(pfForBand.value, 0, 100, 200, 300);
+        push('oxygenation-band', `P/F ${gas.kpa ? `${kpaNumber(pfForBand.value)} kPa (${pfShown} mmHg)` : pfShown}${adjusted ? ' (adjusted for altitude)' : ''} with ${peep.name} ${formatAgainst(peep.value, 0, BERLIN_MIN_PEEP_CMH2O)} cmH2O: consistent with the ${words}${gas.kpa ? ' mmHg' : ''} oxygenation band of the Berlin definition (the band called ${BERLIN_BAND_SEVERITY[band]} there) — an oxygenation band, not a diagnosis.`, [adjusted ? 'pf_ratio_altitude_adjusted' : 'pf_ratio', peep.fieldId ?? 'peep']);
       }
     }
   }
@@ -82,13 +125,13 @@ export function interpret(c: DeriveContext, settings: Settings): Interpretation[
   if (paco2) {
     const v = paco2.value;
     const text = v > settings.hypercapniaAboveMmhg
-      ? `consistent with hypercapnia (above ${formatShort(settings.hypercapniaAboveMmhg)} mmHg): ventilation is not clearing CO2`
+      ? `consistent with hypercapnia (above ${gas.threshold(settings.hypercapniaAboveMmhg, v)}): ventilation is not clearing CO2`
       : v > UPPER_NORMAL_PACO2_MMHG
-        ? `consistent with a mildly raised PaCO2, below the hypercapnia threshold of ${formatShort(settings.hypercapniaAboveMmhg)} mmHg`
+        ? `consistent with a mildly raised PaCO2, below the hypercapnia threshold of ${gas.threshold(settings.hypercapniaAboveMmhg, v)}`
         : v < settings.hypocapniaBelowMmhg
-          ? `consistent with hypocapnia (below ${formatShort(settings.hypocapniaBelowMmhg)} mmHg): ventilation above metabolic need`
+          ? `consistent with hypocapnia (below ${gas.threshold(settings.hypocapniaBelowMmhg, v)}): ventilation above metabolic need`
           : 'consistent with normal ventilation';
-    push('ventilation', `PaCO2 ${formatAgainst(v, 0, settings.hypercapniaAboveMmhg, UPPER_NORMAL_PACO2_MMHG, settings.hypocapniaBelowMmhg)} mmHg: ${text}.`, ['paco2'], v > settings.hypercapniaAboveMmhg || v < settings.hypocapniaBelowMmhg);
+    push('ventilation', `PaCO2 ${gas.value(v, settings.hypercapniaAboveMmhg, UPPER_NORMAL_PACO2_MMHG, settings.hypocapniaBelowMmhg)}: ${text}.`, ['paco2'], v > settings.hypercapniaAboveMmhg || v < settings.hypocapniaBelowMmhg);
   }
 
   // Respiratory failure
@@ -98,24 +141,24 @@ export function interpret(c: DeriveContext, settings: Settings): Interpretation[
     else if (hypercapnic && onOxygen) push('respiratory-failure', `Consistent with type 2 (hypercapnic) respiratory failure, with PaO2 held up by supplemental oxygen (FiO2 ${formatNumber(fio2.value, 2)}).`, ['pao2', 'paco2', 'fio2']);
     else if (hypercapnic && oxygenDevice !== null) push('respiratory-failure', `Consistent with type 2 (hypercapnic) respiratory failure, with PaO2 held up by supplemental oxygen (${oxygenDevice}, FiO2 not stated).`, ['pao2', 'paco2', 'device']);
     // FiO2 unknown: oxygen may be holding the PaO2 up, so no negative statement is made.
-    else if (hypercapnic && fio2 === null) push('respiratory-failure', `Hypercapnia with a PaO2 above ${formatShort(settings.hypoxaemiaBelowMmhg)} mmHg and no FiO2 stated: on supplemental oxygen this would be consistent with type 2 (hypercapnic) respiratory failure; add ${c.fio2Need()} to tell.`, ['pao2', 'paco2']);
+    else if (hypercapnic && fio2 === null) push('respiratory-failure', `Hypercapnia with a PaO2 above ${gas.threshold(settings.hypoxaemiaBelowMmhg)} and no FiO2 stated: on supplemental oxygen this would be consistent with type 2 (hypercapnic) respiratory failure; add ${c.fio2Need()} to tell.`, ['pao2', 'paco2']);
     else if (hypercapnic) push('respiratory-failure', 'Hypercapnia without hypoxaemia on air: not consistent with respiratory failure by the PaO2 criterion.', ['pao2', 'paco2', 'fio2'], false);
   }
 
   // Mechanism of hypoxaemia
-  if (hypoxaemic) out.push(...mechanism(c, settings, line));
+  if (hypoxaemic) out.push(...mechanism(c, settings, line, gas));
 
   // Acid–base
   const cls = classification(c);
   if (cls && !cls.consistency.consistent) {
     push('acid-base', `Acid–base not interpreted: the reported HCO3 differs from the ${formatNumber(cls.consistency.calculatedHco3MmolL, 1)} mmol/L that pH and PaCO2 give (see PN402).`, ['ph', 'paco2', 'hco3'], false);
   } else if (cls) {
-    push('acid-base', acidBaseText(cls), ['ph', 'paco2', 'hco3'], cls.primary !== 'normal' || cls.additional.length > 0);
+    push('acid-base', acidBaseText(cls, gas), ['ph', 'paco2', 'hco3'], cls.primary !== 'normal' || cls.additional.length > 0);
   }
   return out;
 }
 
-function mechanism(c: DeriveContext, settings: Settings, line: number | null): Interpretation[] {
+function mechanism(c: DeriveContext, settings: Settings, line: number | null, gas: GasWords): Interpretation[] {
   const pio2 = c.derivedValue('pio2');
   const gradient = c.derivedValue('aa_gradient');
   const upper = c.derivedValue('aa_gradient_upper_normal');
@@ -131,13 +174,13 @@ function mechanism(c: DeriveContext, settings: Settings, line: number | null): I
   const limit = upper?.value ?? AA_UPPER_NORMAL_NO_AGE_MMHG;
   const causes: string[] = [];
   const basis = ['pio2', 'aa_gradient', 'paco2'];
-  if (pio2.value < LOW_PIO2_MMHG) causes.push(`low inspired oxygen (PiO2 ${formatAgainst(pio2.value, 0, LOW_PIO2_MMHG)} mmHg)`);
-  if (paco2.value > settings.hypercapniaAboveMmhg) causes.push(`hypoventilation (PaCO2 ${formatAgainst(paco2.value, 0, settings.hypercapniaAboveMmhg)} mmHg)`);
+  if (pio2.value < LOW_PIO2_MMHG) causes.push(`low inspired oxygen (PiO2 ${gas.value(pio2.value, LOW_PIO2_MMHG)})`);
+  if (paco2.value > settings.hypercapniaAboveMmhg) causes.push(`hypoventilation (PaCO2 ${gas.value(paco2.value, settings.hypercapniaAboveMmhg)})`);
   const raised = gradient.value > limit;
-  const gradientShown = formatAgainst(gradient.value, 0, limit);
-  const limitShown = formatAgainst(limit, 0, gradient.value);
-  if (raised) causes.push(`a raised A–a gradient (${gradientShown} mmHg, above ${limitShown}): V/Q mismatch, shunt or a diffusion limit`);
-  const normalGradient = raised ? '' : ` The A–a gradient (${gradientShown} mmHg) is within the ${upper ? 'age-based ' : ''}normal of ${limitShown}${upper ? '' : ' (age unknown)'}.`;
+  const gradientShown = gas.value(gradient.value, limit);
+  const limitShown = gas.number(limit, gradient.value);
+  if (raised) causes.push(`a raised A–a gradient (${gradientShown}, above ${limitShown}): V/Q mismatch, shunt or a diffusion limit`);
+  const normalGradient = raised ? '' : ` The A–a gradient (${gradientShown}) is within the ${upper ? 'age-based ' : ''}normal of ${limitShown}${upper ? '' : ' (age unknown)'}.`;
   const onOxygen = (c.fio2()?.value ?? 0.21) > 0.21 + 1e-9;
   const caveat = onOxygen ? ' On supplemental oxygen the normal gradient is wider than the air-based limit.' : '';
   if (causes.length === 0) return [{ topic: 'hypoxaemia-mechanism', text: `Hypoxaemia without a low PiO2, hypercapnia or a raised A–a gradient: recheck the inputs.${normalGradient}${caveat}`, basis, line, notable: true }];
@@ -145,7 +188,7 @@ function mechanism(c: DeriveContext, settings: Settings, line: number | null): I
   return [{ topic: 'hypoxaemia-mechanism', text: `${text}${normalGradient}${caveat}`, basis, line, notable: true }];
 }
 
-function acidBaseText(cls: AcidBaseClassification): string {
+function acidBaseText(cls: AcidBaseClassification, gas: GasWords): string {
   const parts: string[] = [];
   const gapKind = cls.anionGap?.metabolicAcidosisKind;
   const gapWords = gapKind === 'high-anion-gap' ? ' with a high anion gap' : gapKind === 'normal-anion-gap' ? ' with a normal anion gap' : gapKind === 'mixed-anion-gap' ? ' with high and normal anion-gap components' : '';
@@ -167,10 +210,10 @@ function acidBaseText(cls: AcidBaseClassification): string {
   if (exp?.kind === 'respiratory-response') {
     // The ends of a range are shown with the decimals that keep the observed value outside or inside it, as it is.
     const o = exp.observed;
-    const range = `${rangeAgainst(exp.range.low, exp.range.high, 0, o)} mmHg`;
+    const range = gas.range(exp.range.low, exp.range.high, o);
     if (cls.compensation === 'appropriate') parts[0] += `, with the expected respiratory response (PaCO2 ${range})`;
-    else if (o > exp.range.high) { parts.push(`PaCO2 ${formatAgainst(o, 0, exp.range.high)} is above the expected ${range}: suspect an added respiratory acidosis`); named.add('respiratory-acidosis'); }
-    else if (o < exp.range.low) { parts.push(`PaCO2 ${formatAgainst(o, 0, exp.range.low)} is below the expected ${range}: suspect an added respiratory alkalosis`); named.add('respiratory-alkalosis'); }
+    else if (o > exp.range.high) { parts.push(`PaCO2 ${gas.observed(o, exp.range.high)} is above the expected ${range}: suspect an added respiratory acidosis`); named.add('respiratory-acidosis'); }
+    else if (o < exp.range.low) { parts.push(`PaCO2 ${gas.observed(o, exp.range.low)} is below the expected ${range}: suspect an added respiratory alkalosis`); named.add('respiratory-alkalosis'); }
   } else if (exp?.kind === 'metabolic-response' && cls.compensation !== 'appropriate' && cls.compensation !== 'not-applicable') {
     const added = cls.additional.find((d) => d === 'metabolic-acidosis' || d === 'metabolic-alkalosis');
     const o = exp.observed;
