@@ -31,6 +31,31 @@ const TRUE_POSITIVES: readonly (readonly [string, readonly PrivacyHit[]])[] = [
   ['discussed with John Doe (son)', [hit(NAME, 'John Doe')]],
   ['wife Mary at the bedside', [hit(NAME, 'Mary')]],
   ['known as Johnny on the ward', [hit(NAME, 'Johnny')]],
+  // surnames that are also eponyms count after a title or a naming word
+  ['Dr Miller reviewed', [hit(NAME, 'Miller')]],
+  ['Dr Allen', [hit(NAME, 'Allen')]],
+  ['Mrs Murray', [hit(NAME, 'Murray')]],
+  ['Mr Wells', [hit(NAME, 'Wells')]],
+  ['Dr Riley', [hit(NAME, 'Riley')]],
+  ['Mrs Henderson', [hit(NAME, 'Henderson')]],
+  ['Mr Fowler', [hit(NAME, 'Fowler')]],
+  ['Dr Hudson', [hit(NAME, 'Hudson')]],
+  ['Ms Stokes', [hit(NAME, 'Stokes')]],
+  ['Dr Miller-Jones', [hit(NAME, 'Miller-Jones')]],
+  ['name Jo Allen', [hit(NAME, 'Jo Allen')]],
+  // given names that are also months or words, before a surname
+  ['Mrs June Roe', [hit(NAME, 'June Roe')]],
+  ['Ms April Roe', [hit(NAME, 'April Roe')]],
+  ['Mrs May Roe', [hit(NAME, 'May Roe')]],
+  ['Dr Will Jonesby', [hit(NAME, 'Will Jonesby')]],
+  // names in capitals, and surname-comma-given names, covered whole
+  ['Mr SMITHERTON', [hit(NAME, 'SMITHERTON')]],
+  ['patient JANE ROE', [hit(NAME, 'JANE ROE')]],
+  ['Mrs Jane ROE', [hit(NAME, 'Jane ROE')]],
+  ['name: ROE, Jane', [hit(NAME, 'ROE, Jane')]],
+  ['Name - Roe, Jane', [hit(NAME, 'Roe, Jane')]],
+  // a relative with a colon or a dash still names two words
+  ['wife: Jane Roe', [hit(NAME, 'Jane Roe')]],
   // dates of birth
   ['DOB 12/03/1961', [hit(BIRTH, '12/03/1961')]],
   ['born 1961-03-12', [hit(BIRTH, '1961-03-12')]],
@@ -155,6 +180,52 @@ const TRUE_NEGATIVES: readonly string[] = [
   'May 5 mg be enough?',
   'Head CT 12345 slices',
   'partner Present, wife Updated by phone',
+  // services, teams and calls after weak cues
+  'referred to Occupational Therapy',
+  'seen by Infection Control',
+  'seen by Tissue Viability',
+  'referred to Pulmonary Rehabilitation',
+  'reviewed by Chest Physician',
+  'discussed with Transplant Coordinator',
+  'called Code Blue',
+  'called Rapid Response',
+  'seen by Acute Pain Team',
+  // family history: a relative with a colon or a dash, or with a disease or a state
+  'FHx: Mother - Asthma, Father - Emphysema',
+  'Father: COPD, Mother: Lung Cancer',
+  'Family history: Brother Asthma',
+  'Mother Deceased, Father Alive and well',
+  'Daughter Pregnant',
+  // social history: a comma ends the cue; prefixes and everyday words are no names
+  'Lives with wife, Independent ADLs',
+  'lives with husband, Non-smoker',
+  'SH: lives with wife, Ex-smoker',
+  'Husband: Carer',
+  'son Lives abroad',
+  'wife Retired teacher',
+  'NOK Wife informed',
+  // a title that ends a sentence or comes before a verb
+  'Escalated to Dr. Awaiting review',
+  'Seen by Dr. Impression: pneumonia',
+  'Dr Bleeped x2',
+  'Dr Advised',
+  'Dr Examined chest',
+  'Dr Prescribed nebs',
+  'Dr Ordered ABG',
+  'Dr Verbal Order',
+  'Dr Will Review',
+  // titles count only capitalised: `mr` mitral regurgitation, `dr` a drain
+  'mod mr, Severe AS',
+  'chest dr Removed',
+  // phrases after `patient` and `pt`
+  'Patient Own Drugs checked',
+  'Patient Held Record',
+  'Patient Liaison Officer',
+  'Pt Coughing Green Sputum',
+  // abbreviations in capitals are no names
+  'Mr ICU',
+  'Patient NIV HFNC',
+  'NOK AWARE',
 ];
 
 describe('privacy detectors: true positives', () => {

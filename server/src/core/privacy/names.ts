@@ -17,9 +17,20 @@ import { match, type PrivacyMatch } from './types';
 
 type Strength = 'strong' | 'weak';
 
-/** Titles count only in these spellings (so `MR` mitral regurgitation and `MS` are not titles). */
-const TITLES = new Set(['Mr', 'Mrs', 'Ms', 'Miss', 'Mx', 'Dr', 'Prof', 'mr', 'mrs', 'dr', 'prof']);
-const STRONG_WORDS = new Set(['name', 'named', 'aka', 'surname', 'forename', 'wife', 'husband', 'partner', 'son', 'daughter', 'mother', 'father', 'sister', 'brother', 'nok', 'carer']);
+/**
+ * Titles count only capitalised, in these spellings: `MR` (mitral regurgitation), `MS`, `mr`
+ * (`mod mr`) and `dr` (`chest dr`, a drain) are abbreviations, not titles.
+ */
+const TITLES = new Set(['Mr', 'Mrs', 'Ms', 'Miss', 'Mx', 'Dr', 'Prof']);
+/** Naming words: after these (and after a title) eponyms count as names (`name Jo Allen`). */
+const NAMING_WORDS = new Set(['name', 'named', 'aka', 'surname', 'forename']);
+/**
+ * Relatives: a cue when a name follows directly (`wife Mary`). After `:` or `-` they head a
+ * family or social history (`Mother - Asthma`) and need two name words, like a weak cue; a comma
+ * after them ends the cue (`lives with wife, Independent`).
+ */
+const RELATIVES = new Set(['wife', 'husband', 'partner', 'son', 'daughter', 'mother', 'father', 'sister', 'brother']);
+const OTHER_STRONG_WORDS = new Set(['nok', 'carer']);
 const WEAK_WORDS = new Set(['patient', 'pt', 'called']);
 /** `by`, `with`, `to` are cues only after these words (`seen by`, `discussed with`, `spoke to`). */
 const VERBS_BEFORE_PREPOSITION = new Set(['seen', 'reviewed', 'discussed', 'examined', 'assessed', 'spoke', 'spoken', 'talked', 'referred', 'handed', 'accompanied', 'visited']);
@@ -64,16 +75,85 @@ const NOT_NAMES = new Set([
   'home', 'hospital', 'hospice', 'clinic', 'community', 'practice', 'surgeon', 'specialist', 'therapist', 'dietitian',
   'dietician', 'staff', 'student', 'midwife', 'chaplain', 'interpreter', 'social', 'services', 'worker', 'police', 'coroner',
   'patient', 'patients', 'pt', 'name', 'unknown', 'anonymous', 'redacted', 'withheld', 'initials',
-  // eponyms and proper nouns used clinically
-  'glasgow', 'berlin', 'winters', 'venturi', 'hudson', 'guedel', 'yankauer', 'foley', 'swan', 'ganz', 'fick', 'henderson',
-  'hasselbalch', 'kussmaul', 'cheyne', 'stokes', 'parkinson', 'alzheimer', 'crohn', 'addison', 'cushing', 'hodgkin', 'wells',
-  'geneva', 'murray', 'denver', 'boston', 'richmond', 'ramsay', 'apgar', 'allen', 'valsalva', 'trendelenburg', 'fowler',
-  'heimlich', 'bohr', 'haldane', 'starling', 'laplace', 'poiseuille', 'fenn', 'rahn', 'riley', 'hufner', 'hüfner', 'mallampati',
-  'cormack', 'lehane', 'macintosh', 'miller', 'magill', 'seldinger', 'doppler', 'holter', 'bipap', 'optiflow', 'airvo',
-  'ventolin', 'atrovent', 'salbutamol', 'ipratropium', 'prednisolone', 'hydrocortisone', 'heliox', 'entonox',
+  // drugs and devices
+  'bipap', 'optiflow', 'airvo', 'ventolin', 'atrovent', 'salbutamol', 'ipratropium', 'prednisolone', 'hydrocortisone', 'heliox',
+  'entonox',
+  // services, roles and calls (`referred to Occupational Therapy`, `called Code Blue`)
+  'therapy', 'therapies', 'control', 'viability', 'rehabilitation', 'rehab', 'physician', 'physicians', 'coordinator',
+  'co', 'ordinator', 'service', 'clinic', 'clinics', 'specialist', 'specialists', 'mdt', 'occupational', 'speech', 'language',
+  'infection', 'prevention', 'tissue', 'pulmonary', 'chest', 'transplant', 'code', 'blue', 'red', 'response', 'rapid',
+  'liaison', 'officer', 'advocate', 'manager', 'matron', 'sister', 'coordinating', 'practitioner', 'advanced', 'clinical',
+  'lead', 'director', 'technician', 'physiologist', 'sho', 'spr', 'fy', 'ct', 'st', 'hca', 'anp', 'acp', 'rn', 'ccu', 'sdu',
+  'carer', 'carers', 'assistant', 'support', 'dietetics', 'sleep', 'lab', 'laboratory', 'bronchoscopy', 'endoscopy', 'xray',
+  'x', 'ray', 'imaging', 'ct', 'mri', 'ultrasound', 'echo', 'ecg', 'cardiologist', 'intensivist', 'hospitalist', 'oncologist',
+  'own', 'drugs', 'drug', 'medication', 'medications', 'meds', 'held', 'record', 'records', 'notes', 'chart', 'charts',
+  'coughing', 'green', 'yellow', 'sputum', 'productive', 'cough', 'wheezy', 'wheezing',
+  // diseases and states in family and social histories (`Mother - Asthma`, `son Lives abroad`)
+  'asthma', 'asthmatic', 'emphysema', 'copd', 'cancer', 'lung', 'lungs', 'carcinoma', 'tumour', 'tumor', 'leukaemia', 'leukemia',
+  'lymphoma', 'diabetes', 'diabetic', 'hypertension', 'dementia', 'bronchiectasis', 'fibrosis', 'cystic', 'tuberculosis',
+  'tb', 'heart', 'disease', 'failure', 'attack', 'mi', 'ihd', 'cva', 'clots', 'clot', 'dvt', 'pe', 'epilepsy', 'arthritis',
+  'deceased', 'died', 'dead', 'alive', 'living', 'pregnant', 'healthy', 'fit', 'frail', 'elderly', 'nil', 'nkda', 'unknown',
+  'lives', 'lived', 'live', 'independent', 'dependent', 'retired', 'works', 'worked', 'working', 'employed', 'unemployed',
+  'smoker', 'smokers', 'smokes', 'smoked', 'smoking', 'non', 'ex', 'current', 'former', 'never', 'drinks', 'alcohol',
+  'abroad', 'locally', 'nearby', 'alone', 'together', 'teacher', 'builder', 'farmer', 'miner', 'driver', 'cleaner',
+  'housewife', 'student', 'supportive', 'involved', 'visits', 'cares', 'helps', 'manages', 'independently', 'adls', 'adl',
+  'wife', 'husband', 'partner', 'son', 'daughter', 'mother', 'father', 'brother', 'sibling', 'siblings', 'friend', 'neighbour',
+  'neighbor', 'niece', 'nephew', 'aunt', 'uncle', 'cousin', 'grandson', 'granddaughter', 'grandmother', 'grandfather', 'nok',
+  'conservative', 'continue', 'continued', 'ceiling', 'escalate', 'escalation', 'likely', 'possible', 'probable',
+  'divorced', 'married', 'widowed', 'widower', 'separated', 'single', 'estranged', 'bereaved', 'also',
+  // verbs after a title or a full stop (`Dr Advised`, `Escalated to Dr. Awaiting review`)
+  'awaiting', 'waiting', 'impression', 'bleeped', 'paged', 'advised', 'advises', 'advising', 'examined', 'examining',
+  'prescribed', 'prescribing', 'ordered', 'orders', 'order', 'verbal', 'telephone', 'phone', 'wrote', 'written', 'documented',
+  'explained', 'discussed', 'spoke', 'spoken', 'noted', 'note', 'assessed', 'assessing', 'reviewing', 'plans', 'planned',
+  'started', 'stopped', 'increased', 'decreased', 'changed', 'adjusted', 'escalated', 'escalating', 'consulted', 'confirmed',
+  'recommended', 'recommends', 'suggested', 'suggests', 'kindly', 'inserted', 'removed', 'sited', 'performed', 'arranged',
+  'booked', 'prescription', 'instructions', 'instructed', 'happy', 'content', 'satisfied', 'notified', 'opinion', 'input',
+  'saw', 'came', 'attends', 'attending', 'covering', 'bleep', 'rota', 'handover', 'cannulated', 'aspirated', 'drained',
+  'listened', 'auscultated', 'agreed', 'declined', 'accepted', 'accepts', 'refused', 'unable', 'able', 'gave', 'given',
   // days and months (dates are found by their own detector)
   'monday', 'tuesday', 'wednesday', 'thursday', 'friday', 'saturday', 'sunday',
   'january', 'february', 'march', 'april', 'june', 'july', 'august', 'september', 'october', 'november', 'december',
+]);
+
+/**
+ * Eponyms and place names used clinically (`Glasgow`, `Hudson mask`, `Murray score`): no name
+ * after a relative or a weak cue, but common surnames too, so after a title or a naming word
+ * they count (`Dr Miller`, `name Jo Allen`). Lower case.
+ */
+const EPONYMS = new Set([
+  'glasgow', 'berlin', 'winters', 'hudson', 'guedel', 'yankauer', 'foley', 'swan', 'ganz', 'fick', 'henderson',
+  'hasselbalch', 'kussmaul', 'cheyne', 'stokes', 'parkinson', 'alzheimer', 'crohn', 'addison', 'cushing', 'hodgkin', 'wells',
+  'geneva', 'murray', 'denver', 'boston', 'richmond', 'ramsay', 'apgar', 'allen', 'valsalva', 'trendelenburg', 'fowler',
+  'heimlich', 'bohr', 'haldane', 'starling', 'laplace', 'poiseuille', 'fenn', 'rahn', 'riley', 'hufner', 'hüfner', 'mallampati',
+  'cormack', 'lehane', 'macintosh', 'miller', 'magill', 'seldinger', 'doppler', 'holter',
+]);
+
+/**
+ * Words of the not-names that are also given names: after a title or a naming word, followed by
+ * a name word, they start a name (`Mrs June Roe`, `Dr Will Jonesby`). Lower case.
+ */
+const GIVEN_NAMES = new Set(['april', 'may', 'june', 'july', 'august', 'will', 'sunday', 'grace', 'hope', 'faith', 'joy']);
+
+/**
+ * Abbreviations written in capitals that are never surnames, though they hold a vowel
+ * (`Dr ABG`, `patient NIV ICU`). Capitalised words of two letters or more outside this list
+ * count as name words after a cue (`Mr SMITHERTON`, `patient JANE ROE`). Lower case.
+ */
+const ABBREVIATIONS = new Set([
+  'icu', 'itu', 'hdu', 'ed', 'ae', 'aau', 'amu', 'mau', 'sau', 'or', 'pacu', 'ccot', 'mdt', 'nbm', 'dnr', 'dnar', 'dnacpr',
+  'abg', 'vbg', 'cbg', 'niv', 'hfnc', 'cpap', 'bipap', 'peep', 'ecmo', 'copd', 'ards', 'aki', 'ckd', 'uti', 'urti', 'lrti',
+  'cap', 'hap', 'vap', 'pe', 'dvt', 'acs', 'af', 'mi', 'ihd', 'ccf', 'lvf', 'hf', 'osa', 'ohs', 'ild', 'ipf', 'cf', 'tb',
+  'hiv', 'covid', 'sars', 'cov', 'rsv', 'mrsa', 'gcs', 'news', 'avpu', 'sofa', 'apache', 'curb', 'rox', 'obs', 'ews', 'pews',
+  'ecg', 'echo', 'cxr', 'ctpa', 'mri', 'us', 'pocus', 'fbc', 'ue', 'lft', 'lfts', 'crp', 'pct', 'inr', 'aptt', 'bnp',
+  'iv', 'im', 'sc',  'po', 'pr', 'ng', 'ngt', 'peg', 'tpn', 'ivi', 'pca', 'ett', 'lma', 'ippv', 'simv', 'prvc', 'aprv',
+  'sob', 'soboe', 'doe', 'pnd', 'loc', 'aaox', 'oe', 'ix', 'dx', 'ddx', 'hx', 'pmh', 'shx', 'fhx', 'dh', 'sh', 'fh', 'hpc',
+  'pc', 'ros', 'rv', 'lv', 'ra', 'la', 'hr', 'rr', 'bp', 'sat', 'sats', 'spo', 'fio', 'pao', 'paco', 'ok', 'nad', 'nok',
+  'gp', 'sho', 'spr', 'fy', 'reg', 'hca', 'anp', 'acp', 'rn', 'ot', 'slt', 'salt', 'pt', 'physio', 'tds', 'bd', 'od', 'qds',
+  'prn', 'stat', 'nebs', 'neb', 'ics', 'laba', 'lama', 'saba', 'mdi', 'dpi', 'ltot', 'ambo', 'ivabx', 'abx', 'ppi', 'vte',
+  'lmwh', 'ace', 'arb', 'nsaid', 'nsaids', 'ssri', 'ebv', 'cmv', 'ana', 'anca', 'ige', 'feno', 'pefr', 'pef', 'fev', 'fvc',
+  'tlco', 'kco', 'rv', 'tlc', 'vo', 'ae', 'ecopd', 'aecopd', 'ira', 'yes', 'no', 'nil', 'na', 'nkda', 'uk', 'usa', 'nhs', 'id',
+  'mrn', 'dob', 'age', 'male', 'female', 'aaa', 'oob', 'ooh', 'eol', 'ttl', 'eta', 'etoh', 'ivdu', 'adls', 'adl',
+  'loinc', 'ucum', 'fhir', 'snomed', 'icd', 'nice', 'bts', 'ers', 'ats', 'gold', 'who', 'iso', 'sarif', 'csv', 'json', 'asap',
 ]);
 
 /**
@@ -88,13 +168,19 @@ const REGISTRY_WORDS: ReadonlySet<string> = new Set(
   ].flatMap((phrase) => runsOf(phrase).filter((r) => r.kind === 'letters').map((r) => r.text.toLowerCase())),
 );
 
-function isNotName(word: string): boolean {
+function isNotName(word: string, eponymsAllowed: boolean): boolean {
   const lower = word.toLowerCase();
-  return NOT_NAMES.has(lower) || REGISTRY_WORDS.has(lower);
+  return NOT_NAMES.has(lower) || REGISTRY_WORDS.has(lower) || (!eponymsAllowed && EPONYMS.has(lower));
 }
 
+/**
+ * What a cue is: a title (`Dr`), a naming word (`name`), a relative (`wife`), another strong
+ * cue (`NOK`, `next of kin`, `known as`) or a weak one (`patient`, `seen by`).
+ */
+type CueKind = 'title' | 'naming' | 'relative' | 'strong' | 'weak';
+
 interface Cue {
-  readonly strength: Strength;
+  readonly kind: CueKind;
   /** The cue as written, with the word before it for two-word cues (`known as`, `seen by`). */
   readonly label: string;
 }
@@ -102,39 +188,42 @@ interface Cue {
 function cueAt(text: string, runs: readonly Run[], i: number): Cue | null {
   const run = runs[i]!;
   if (run.kind !== 'letters') return null;
-  if (TITLES.has(run.text)) return { strength: 'strong', label: run.text };
+  if (TITLES.has(run.text)) return { kind: 'title', label: run.text };
   const lower = run.text.toLowerCase();
   // All-capital words are abbreviations, not cues (`PT` physiotherapy), except `NOK`.
   if (run.text.length > 1 && run.text === run.text.toUpperCase() && lower !== 'nok') return null;
   const prev = runs[i - 1];
   const prevWord = prev && isBlankGap(text.slice(prev.end, run.start)) ? prev.text.toLowerCase() : null;
   const withPrev = prev ? text.slice(prev.start, run.end) : run.text;
-  if (lower === 'as' && prevWord === 'known') return { strength: 'strong', label: withPrev };
+  if (lower === 'as' && prevWord === 'known') return { kind: 'naming', label: withPrev };
   if (lower === 'kin' && prevWord === 'of') {
     const first = runs[i - 2];
-    return { strength: 'strong', label: first && first.text.toLowerCase() === 'next' ? text.slice(first.start, run.end) : withPrev };
+    return { kind: 'strong', label: first && first.text.toLowerCase() === 'next' ? text.slice(first.start, run.end) : withPrev };
   }
   if (lower === 'name' && prevWord !== null && NOT_PERSON_NAME.has(prevWord)) return null;
-  if (STRONG_WORDS.has(lower)) return { strength: 'strong', label: run.text };
-  if (lower === 'by' || lower === 'with' || lower === 'to') return prevWord !== null && VERBS_BEFORE_PREPOSITION.has(prevWord) ? { strength: 'weak', label: withPrev } : null;
-  if (WEAK_WORDS.has(lower)) return { strength: 'weak', label: run.text };
+  if (NAMING_WORDS.has(lower)) return { kind: 'naming', label: run.text };
+  if (RELATIVES.has(lower)) return { kind: 'relative', label: run.text };
+  if (OTHER_STRONG_WORDS.has(lower)) return { kind: 'strong', label: run.text };
+  if (lower === 'by' || lower === 'with' || lower === 'to') return prevWord !== null && VERBS_BEFORE_PREPOSITION.has(prevWord) ? { kind: 'weak', label: withPrev } : null;
+  if (WEAK_WORDS.has(lower)) return { kind: 'weak', label: run.text };
   return null;
 }
 
 /**
- * Between a cue and the name: blanks with at most one mark (`name: Jane Roe`, `patient, Jane Roe`).
- * A full stop only after a title (`Dr. Patel`); after any other cue it ends the sentence.
+ * The mark between a cue and the name (a space when there is none), or null when the gap is no
+ * cue gap: blanks with at most one mark (`name: Jane Roe`, `patient, Jane Roe`). A full stop
+ * only after a title (`Dr. Patel`); after any other cue it ends the sentence.
  */
-function isCueGap(gap: string, title: boolean): boolean {
-  if (gap.length === 0 || gap.length > 6) return false;
-  let marks = 0;
+function cueGapMark(gap: string, title: boolean): string | null {
+  if (gap.length === 0 || gap.length > 6) return null;
+  let mark: string | null = null;
   for (let k = 0; k < gap.length; k++) {
     const ch = gap.charAt(k);
     if (isBlankGap(ch)) continue;
-    if ((ch === '.' && title) || ch === ':' || ch === ',' || ch === '-' || ch === '=' || ch === '–') marks++;
-    else return false;
+    if (mark === null && ((ch === '.' && title) || ch === ':' || ch === ',' || ch === '-' || ch === '=' || ch === '–')) mark = ch;
+    else return null;
   }
-  return marks <= 1;
+  return mark ?? ' ';
 }
 
 /** A capitalised word: `Patel`, `McDonald`, `Zoë`; not `PEEP`, `review` or `X`. */
@@ -142,6 +231,21 @@ function isCapitalised(word: string): boolean {
   if (word.length < 2 || !isUpperChar(word.charAt(0)) || !isLowerChar(word.charAt(1))) return false;
   for (let k = 1; k < word.length; k++) if (!isLowerChar(word.charAt(k)) && !isUpperChar(word.charAt(k))) return false;
   return true;
+}
+
+/**
+ * A word in capitals that may be a surname (`SMITHERTON`, `ROE`): two letters or more, a vowel,
+ * and no known abbreviation (`ICU`, `ABG`, `COPD`).
+ */
+function isCapitalsName(word: string): boolean {
+  if (word.length < 2) return false;
+  let vowel = false;
+  for (let k = 0; k < word.length; k++) {
+    const ch = word.charAt(k);
+    if (!isUpperChar(ch)) return false;
+    if ('AEIOUY'.includes(ch)) vowel = true;
+  }
+  return vowel && !ABBREVIATIONS.has(word.toLowerCase());
 }
 
 interface NameWord {
@@ -153,33 +257,49 @@ interface NameWord {
 }
 
 /**
- * Reads one name word at run `i`: a capitalised word, possibly joined to more by an apostrophe
- * or a hyphen (`O'Brien`, `Smith-Jones`), or an initial (`J` or `J.`).
+ * Reads one name word at run `i`: a capitalised word (or, after a cue, one in capitals),
+ * possibly joined to more by an apostrophe or a hyphen (`O'Brien`, `Smith-Jones`), or an
+ * initial (`J` or `J.`). Eponyms count only when `eponymsAllowed` (after a title or a naming
+ * word). A word cut before a hyphen and a lower-case word is a prefix (`Ex-smoker`, `Non-`).
  */
-function nameWordAt(text: string, runs: readonly Run[], i: number): NameWord | null {
+function nameWordAt(text: string, runs: readonly Run[], i: number, eponymsAllowed: boolean): NameWord | null {
   const run = runs[i];
   if (!run || run.kind !== 'letters') return null;
   let j = i;
   let end = run.end;
-  const parts = [run.text];
+  let parts = 1;
   for (;;) {
     const next = runs[j + 1];
-    if (!next || next.kind !== 'letters' || !isCapitalised(next.text)) break;
+    if (!next || next.kind !== 'letters' || !(isCapitalised(next.text) || isCapitalsName(next.text))) break;
     const joint = text.slice(end, next.start);
     if (joint !== "'" && joint !== '\u2019' && joint !== '-') break;
-    parts.push(next.text);
+    parts++;
     end = next.end;
     j++;
   }
-  const head = parts[0]!;
-  if (parts.length === 1 && head.length === 1) {
+  const head = run.text;
+  if (parts === 1 && head.length === 1) {
     if (!isUpperChar(head)) return null;
     return { start: run.start, end: text.charAt(end) === '.' ? end + 1 : end, next: j + 1, initial: true };
   }
-  const headOk = isCapitalised(head) || (parts.length > 1 && head.length === 1 && isUpperChar(head));
+  if (text.charAt(end) === '-' && isLowerChar(text.charAt(end + 1))) return null;
+  const headOk = isCapitalised(head) || isCapitalsName(head) || (parts > 1 && head.length === 1 && isUpperChar(head));
   // A title starts a name of its own (`seen by Dr Patel`: the name is `Patel`, after `Dr`).
-  if (!headOk || TITLES.has(head) || isNotName(head) || isNotName(text.slice(run.start, end))) return null;
+  if (!headOk || TITLES.has(head) || isNotName(head, eponymsAllowed) || isNotName(text.slice(run.start, end), eponymsAllowed)) return null;
   return { start: run.start, end, next: j + 1, initial: false };
+}
+
+/**
+ * A given name that is also a common word (`June`, `May`, `Will`) at run `i`, followed by a
+ * name word: `Mrs June Roe`. Only after a title or a naming word.
+ */
+function givenNameAt(text: string, runs: readonly Run[], i: number): NameWord | null {
+  const run = runs[i];
+  const next = runs[i + 1];
+  if (!run || !next || run.kind !== 'letters' || !isCapitalised(run.text) || !GIVEN_NAMES.has(run.text.toLowerCase())) return null;
+  if (!isBlankGap(text.slice(run.end, next.start))) return null;
+  const w = nameWordAt(text, runs, i + 1, true);
+  return w && !w.initial ? { start: run.start, end: run.end, next: i + 1, initial: false } : null;
 }
 
 export function findNames(text: string): PrivacyMatch[] {
@@ -188,11 +308,20 @@ export function findNames(text: string): PrivacyMatch[] {
   for (let i = 0; i < runs.length; i++) {
     const found = cueAt(text, runs, i);
     if (!found) continue;
-    const strength = found.strength;
     const cue = runs[i]!;
     let j = i + 1;
     const first = runs[j];
-    if (!first || !isCueGap(text.slice(cue.end, first.start), TITLES.has(cue.text))) continue;
+    if (!first) continue;
+    const mark = cueGapMark(text.slice(cue.end, first.start), found.kind === 'title');
+    if (mark === null) continue;
+    let weak = found.kind === 'weak';
+    if (found.kind === 'relative') {
+      // `lives with wife, Independent ADLs`: a comma ends the cue; `Mother - Asthma`, `Father: COPD`
+      // head a history and need two name words.
+      if (mark === ',') continue;
+      if (mark !== ' ') weak = true;
+    }
+    const eponymsAllowed = found.kind === 'title' || found.kind === 'naming';
     // `name is Jane Roe`, `name was Jane Roe`.
     if ((first.text === 'is' || first.text === 'was') && runs[j + 1] && isBlankGap(text.slice(first.end, runs[j + 1]!.start))) j++;
     const words: NameWord[] = [];
@@ -204,7 +333,7 @@ export function findNames(text: string): PrivacyMatch[] {
         const gap = text.slice(prevEnd, run.start);
         if (!(isBlankGap(gap) || (words[words.length - 1]!.initial && gap.length === 0))) break;
       }
-      const w = nameWordAt(text, runs, j);
+      const w = nameWordAt(text, runs, j, eponymsAllowed) ?? (words.length === 0 && eponymsAllowed ? givenNameAt(text, runs, j) : null);
       if (!w) break;
       words.push(w);
       prevEnd = w.end;
@@ -213,7 +342,17 @@ export function findNames(text: string): PrivacyMatch[] {
     // Drop trailing initials: an initial alone is no name (`Dr A`).
     while (words.length > 0 && words[words.length - 1]!.initial) words.pop();
     const full = words.filter((w) => !w.initial).length;
-    if (full === 0 || (strength === 'weak' && words.length < 2)) continue;
+    if (full === 0 || (weak && words.length < 2)) continue;
+    // `name: ROE, Jane`, `Name - Roe, Jane`: a surname, a comma, then the given names.
+    if (found.kind === 'naming' && words.length === 1) {
+      const next = runs[j];
+      const comma = next ? text.slice(prevEnd, next.start) : '';
+      const given = comma === ',' || comma === ', ' ? nameWordAt(text, runs, j, true) : null;
+      if (given && !given.initial) {
+        words.push(given);
+        j = given.next;
+      }
+    }
     out.push(match('name', text, words[0]!.start, words[words.length - 1]!.end, found.label));
     i = j - 1;
   }
