@@ -62,6 +62,9 @@ const TRUE_POSITIVES: readonly (readonly [string, readonly PrivacyHit[]])[] = [
   ['date of birth 4 March 1961', [hit(BIRTH, '4 March 1961')]],
   ['D.O.B. 12/03/61', [hit(BIRTH, '12/03/61')]],
   ['born in 1961, lifelong smoker', [hit(BIRTH, '1961')]],
+  ['DOB 12-MAR-1961', [hit(BIRTH, '12-MAR-1961')]],
+  ['DOB 12-Mar-61', [hit(BIRTH, '12-Mar-61')]],
+  ['DOB 12 Mar 61', [hit(BIRTH, '12 Mar 61')]],
   // calendar dates
   ['admitted 2026-03-04 with pneumonia', [hit(DATE, '2026-03-04')]],
   ['gas repeated on 04/03/2026', [hit(DATE, '04/03/2026')]],
@@ -72,6 +75,11 @@ const TRUE_POSITIVES: readonly (readonly [string, readonly PrivacyHit[]])[] = [
   ['CT 4-Mar-2026 showed consolidation', [hit(DATE, '4-Mar-2026')]],
   ['home oxygen since Dec 2024', [hit(DATE, 'Dec 2024')]],
   ['sample taken 2026-03-04T08:00', [hit(DATE, '2026-03-04')]],
+  ['admitted 04-MAR-2026', [hit(DATE, '04-MAR-2026')]],
+  ['04 MAR 2026', [hit(DATE, '04 MAR 2026')]],
+  ['4 SEP 2025', [hit(DATE, '4 SEP 2025')]],
+  ['admitted 4-Mar-26', [hit(DATE, '4-Mar-26')]],
+  ['review Mar. 4th', [hit(DATE, 'Mar. 4th')]],
   // phone numbers
   ['daughter on 07700 900123', [hit(PHONE, '07700 900123')]],
   ['tel +44 20 7946 0958', [hit(PHONE, '+44 20 7946 0958')]],
@@ -179,6 +187,11 @@ const TRUE_NEGATIVES: readonly string[] = [
   'Aug 1.2 g IV tds, then Aug 1 g',
   'May 5 mg be enough?',
   'Head CT 12345 slices',
+  'RR 24. May need NIV',
+  'GCS 8. May need intubation',
+  'RR 30. March to ICU',
+  '4 MAR charts signed',
+  'MAY NEED NIV',
   'partner Present, wife Updated by phone',
   // services, teams and calls after weak cues
   'referred to Occupational Therapy',

@@ -93,13 +93,13 @@ export const possibleName = privacyCheck('PN501', 'possible-name', 'name', 'Poss
 }, (m) => `\`${m.text}\` looks like a person's name${after(m)}; a note needs none. Remove it or write [name].`);
 
 export const birthDate = privacyCheck('PN502', 'birth-date', 'birth-date', 'Date of birth', {
-  fires: 'A date (or a year) follows a birth cue: `DOB`, `D.O.B.`, `born`, `date of birth`, `birth date`. Two-digit years (`12/03/61`) count here.',
+  fires: 'A date (or a year) follows a birth cue: `DOB`, `D.O.B.`, `born`, `date of birth`, `birth date`. Two-digit years (`12/03/61`, `12 Mar 61`) count here.',
   example: 'note      DOB 12/03/1961',
   fix: `Remove it: the age on the \`patient\` line (\`patient age 64 y\`) is all a note needs. The quick fix writes \`[date of birth]\`. ${OFF}`,
 }, (m) => `\`${m.text}\` looks like a date of birth${after(m)}; write the age on the patient line instead (\`patient age 64 y\`).`);
 
 export const calendarDate = privacyCheck('PN503', 'calendar-date', 'calendar-date', 'Calendar date', {
-  fires: 'Free text holds a calendar date: `2026-03-04`, `2026-03-04T08:00`, `04/03/2026`, `4.3.2026`, `20260304`, `4 March 2026`, `March 4, 2026`, `4th of March`, `Mar 2026`. Numeric dates need a four-digit year from 1900 to 2099, so gases (`7.28/56/71`), pressures (`120/80`) and fractions (`3/7`) never count.',
+  fires: 'Free text holds a calendar date: `2026-03-04`, `2026-03-04T08:00`, `04/03/2026`, `4.3.2026`, `20260304`, `4 March 2026`, `March 4, 2026`, `4th of March`, `Mar 2026`, `04-MAR-2026` (a month in capitals only with a year), `4-Mar-26` (a two-digit year only between hyphens). A full stop between a day and a month ends a sentence (`RR 24. May need NIV`). Numeric dates need a four-digit year from 1900 to 2099, so gases (`7.28/56/71`), pressures (`120/80`) and fractions (`3/7`) never count.',
   example: '@ day 2 08:00  seen in clinic on 4 March 2026',
   fix: `Write times relative to the note (\`@ day 2 08:00\`, \`@ +2h30\`): they keep dates of care out of shared notes. The quick fix writes \`[date]\`. ${OFF}`,
 }, (m) => `\`${m.text}\` is a calendar date; write a relative day instead (\`@ day 2 08:00\`), which keeps dates of care out of shared notes.`);

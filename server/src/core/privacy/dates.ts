@@ -24,7 +24,8 @@ const BIRTH_FILLERS = new Set(['on', 'in', 'is', 'was', 'the', 'at']);
 
 /**
  * Whether a run is a month name. Full names count in lower case too (except may, march and
- * august, which must be capitalised); abbreviations must be capitalised (`Mar`, not `MAR`).
+ * august, which must be capitalised); abbreviations must be capitalised (`Mar`). Names in
+ * capitals (`MAR`, `SEP`, `MAY`) count too, but only in a date with a year (see `writtenDates`).
  */
 export function monthOf(run: Run): number | null {
   if (run.kind !== 'letters') return null;
@@ -34,7 +35,18 @@ export function monthOf(run: Run): number | null {
   const full = MONTHS[index]![0] === lower;
   const capitalised = run.text.charAt(0) === run.text.charAt(0).toUpperCase() && run.text.slice(1) === run.text.slice(1).toLowerCase();
   if (full && !AMBIGUOUS_FULL.has(lower)) return index + 1;
-  return capitalised ? index + 1 : null;
+  return capitalised || isCapitals(run.text) ? index + 1 : null;
+}
+
+/** A word in capitals of three letters or more (`MAR`, `SEPT`). */
+function isCapitals(word: string): boolean {
+  return word.length >= 3 && word === word.toUpperCase() && word !== word.toLowerCase();
+}
+
+/** An abbreviated month (`Mar`, `Sept`, `MAR`): a full stop may follow it (`Mar. 4`). */
+function isAbbreviatedMonth(run: Run): boolean {
+  const lower = run.text.toLowerCase();
+  return MONTHS.some((names) => names[0] !== lower && names.includes(lower));
 }
 
 /** A day of the month: `4`, `04`, `4th`, `22nd`. */
@@ -73,12 +85,26 @@ function isDateSep(gap: string): boolean {
   return gap === '/' || gap === '-' || gap === '.';
 }
 
-/** Between words of a written date: blanks, or one hyphen (`4-Mar-2026`), or a comma and blanks. */
-function isWordGap(gap: string): boolean {
+/**
+ * Between words of a written date: blanks, or one hyphen (`4-Mar-2026`), or a comma and blanks
+ * (`March 4, 2026`), or a full stop and blanks after an abbreviated month (`Mar. 4`). A full
+ * stop anywhere else ends a sentence (`RR 24. May need NIV`).
+ */
+function isWordGap(gap: string, afterAbbreviation: boolean): boolean {
   if (isBlankGap(gap) || gap === '-') return true;
   if (gap === '.' || gap === ',') return false;
   const first = gap.charAt(0);
-  return (first === ',' || first === '.') && isBlankGap(gap.slice(1));
+  return (first === ',' || (first === '.' && afterAbbreviation)) && isBlankGap(gap.slice(1));
+}
+
+/** Between a day and the month after it: blanks or one hyphen (`4 March`, `4-Mar`). */
+function isDayMonthGap(gap: string): boolean {
+  return isBlankGap(gap) || gap === '-';
+}
+
+/** A two-digit year: `26` in `4-Mar-26`. */
+function isTwoDigitYear(run: Run | undefined): boolean {
+  return run !== undefined && run.kind === 'digits' && run.text.length === 2;
 }
 
 function validDayMonth(a: number, b: number): boolean {
@@ -151,21 +177,24 @@ function joinedNumber(text: string, at: number, direction: -1 | 1): boolean {
 
 function writtenDates(text: string, runs: readonly Run[]): Found[] {
   const out: Found[] = [];
-  const gapOk = (x: Run | undefined, y: Run | undefined) => x !== undefined && y !== undefined && isWordGap(text.slice(x.end, y.start));
+  const gapOk = (x: Run | undefined, y: Run | undefined) => x !== undefined && y !== undefined && isWordGap(text.slice(x.end, y.start), isAbbreviatedMonth(x));
   for (let i = 0; i < runs.length; i++) {
     const month = runs[i]!;
     if (monthOf(month) === null) continue;
     let start = month.start;
     let end = month.end;
     let found = false;
-    // Day before: `4 March`, `4th of March`.
+    let year = false;
+    // Day before: `4 March`, `4th of March`, `4-Mar`.
     const prev = runs[i - 1];
     const prev2 = runs[i - 2];
-    if (gapOk(prev, month) && dayOf(prev) !== null) {
-      start = prev!.start;
+    let dayGap: string | null = null;
+    if (prev && dayOf(prev) !== null && isDayMonthGap(text.slice(prev.end, month.start))) {
+      start = prev.start;
+      dayGap = text.slice(prev.end, month.start);
       found = true;
-    } else if (prev?.text.toLowerCase() === 'of' && gapOk(prev, month) && gapOk(prev2, prev) && dayOf(prev2) !== null) {
-      start = prev2!.start;
+    } else if (prev?.text.toLowerCase() === 'of' && isBlankGap(text.slice(prev.end, month.start)) && prev2 && isBlankGap(text.slice(prev2.end, prev.start)) && dayOf(prev2) !== null) {
+      start = prev2.start;
       found = true;
     }
     let k = i + 1;
@@ -176,11 +205,23 @@ function writtenDates(text: string, runs: readonly Run[]): Found[] {
       k++;
     }
     // Year after: `4 March 2026`, `March 4, 2026`, `March 2026`.
-    if (gapOk(runs[k - 1], runs[k]) && yearOf(runs[k]) !== null) {
-      end = runs[k]!.end;
+    const yearRun = runs[k];
+    if (gapOk(runs[k - 1], yearRun) && yearOf(yearRun) !== null) {
+      end = yearRun!.end;
       found = true;
+      year = true;
+    } else if (dayGap !== null && k === i + 1 && isTwoDigitYear(yearRun)) {
+      // A two-digit year after a day and a month: `4-Mar-26` (hyphens both sides), or after a
+      // birth cue `DOB 12 Mar 61`.
+      const gap = text.slice(month.end, yearRun!.start);
+      if ((dayGap === '-' && gap === '-') || (isBlankGap(dayGap) && isBlankGap(gap) && birthCueBefore(text, start) !== null)) {
+        end = yearRun!.end;
+        year = true;
+      }
     }
     if (!found) continue;
+    // A month in capitals (`MAR` is also a drug chart, `MAY` a word) needs a year.
+    if (isCapitals(month.text) && !year) continue;
     // Not part of a longer token: `Aug 1.2 g` is a dose, `March 2026/27` no year.
     if (joinedNumber(text, start - 1, -1) || joinedNumber(text, end, 1)) continue;
     // `Aug 1 g`, `May 5 mg`: a quantity after a word that looks like a month.
