@@ -154,8 +154,9 @@ const numeric = { name: sc('constant.numeric'), patterns: [{ include: '#decimal-
 function spacedUnit(units, keys) {
   return [
     '\\s+(?:',
-    cap('keyword.other.unit', units), END,
-    `|(?!${keys}${END})(?!${NUM_START})`, cap('keyword.other.unit.unknown', '[^\\s,#]{1,12}'), END, `(?!\\s+${NUM_START})`,
+    // A unit spelling that is also a key of the section, with a number after it, is that key (`pco2 40 ph 7.4`).
+    `(?!${keys}${END}\\s+${NUM_START})`, cap('keyword.other.unit', units), END,
+    `|(?!${keys}${END})(?=[A-Za-z%°])`, cap('keyword.other.unit.unknown', '[^\\s,#]{1,12}'), END, `(?!\\s+${NUM_START})`,
     ')',
   ];
 }

@@ -107,6 +107,37 @@ describe('section lines', () => {
     expect(section(hr).items.map((i) => i.keyName)).not.toContain('/');
   });
 
+  it('reads a unit spelling that is also a key of the line as that key when a number follows (commas are optional)', () => {
+    const gas = 'abg pco2 40 ph 7.4';
+    expect(section(gas).items.map((i) => summary(gas, i))).toEqual(['pco2 | 40 | <none>', 'ph | 7.4 | <none>']);
+    const vent = 'vent peep 5 f 20';
+    expect(section(vent).items.map((i) => [i.keyName, i.field?.id])).toEqual([['peep', 'peep'], ['f', 'vent_rate']]);
+    const temp = 'vitals temp 98.6 f';
+    expect(section(temp).items.map((i) => summary(temp, i))).toEqual(['temp | 98.6 | f']);
+  });
+
+  it('never reads punctuation as a unit: `hr 80 / rr 20` keeps both items and reports the slash', () => {
+    const text = 'vitals hr 80 / rr 20';
+    const node = section(text);
+    expect(node.items.map((i) => summary(text, i))).toEqual(['hr | 80 | <none>', 'rr | 20 | <none>']);
+    expect(node.issues.map((i) => [i.check, at(text, i.span)])).toEqual([['stray-text', '/']]);
+  });
+
+  it('reports a value of the wrong shape for its key instead of dropping it in silence', () => {
+    const one = 'vitals bp 120, hr 80';
+    expect(section(one).issues.map((i) => [i.check, at(one, i.span), i.message])).toEqual([
+      ['missing-value', 'bp 120', '`bp` takes two numbers joined by a slash (`bp 120/80`); `120` is one, so it is not read.'],
+    ]);
+    const two = 'vitals hr 80/90';
+    expect(section(two).issues.map((i) => [i.check, at(two, i.span), i.message])).toEqual([
+      ['missing-value', 'hr 80/90', '`hr` takes one number; `80/90` is two numbers, so it is not read.'],
+    ]);
+  });
+
+  it('gives a gas its shape: `abg 7.28/56` is a shorthand, not a key with two numbers', () => {
+    expect(section('abg 7.28/56/71/26').issues).toEqual([]);
+  });
+
   it('gives a section word at the start of a line one token shared by such lines, with its span', () => {
     const a = section('vitals hr 80');
     const b = section('vitals rr 16');
@@ -230,6 +261,15 @@ describe('section lines', () => {
 });
 
 describe('timepoints', () => {
+  it('reports a time written without its colon after `day N`, with a fix, instead of taking it into the label', () => {
+    const text = '@ day 2 0800 handover';
+    const node = timepoint(text);
+    expect(node.label?.text).toBe('handover');
+    expect(node.issues.map((i) => [i.check, at(text, i.span), i.fixes.map((f) => f.edits[0]?.newText)])).toEqual([['bad-time', '0800', ['08:00']]]);
+    expect(timepoint('@ day 2 745').issues[0]?.fixes[0]?.edits[0]?.newText).toBe('07:45');
+    expect(timepoint('@ day 2 2500 review').issues).toEqual([]);
+  });
+
   it('reads `@ day N HH:MM label`', () => {
     const node = timepoint('@ day 2 07:40  arrival on the ward');
     expect(node.time).toMatchObject({ kind: 'clock', day: 2, minutes: 460, text: 'day 2 07:40' });

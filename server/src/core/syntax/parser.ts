@@ -207,6 +207,11 @@ function parseTimepoint(body: string, chunks: Word[], line: number, text: string
         if (c2 && looksLikeClock(c2.text)) {
           issues.push({ check: 'bad-time', span: c2.span, message: `\`${c2.text}\` is not a time of day (00:00 to 23:59).`, fixes: [] });
           used = 3;
+        } else if (c2 && clockWithoutColon(c2.text) !== null) {
+          // `@ day 2 0800`: a time written without its colon would otherwise become the label.
+          const clock = clockWithoutColon(c2.text)!;
+          issues.push({ check: 'bad-time', span: c2.span, message: `\`${c2.text}\` reads as a time without its colon; write \`${clock}\` (the time is unknown until then).`, fixes: [{ title: `Write \`${clock}\``, edits: [{ span: c2.span, newText: clock }], preferred: true }] });
+          used = 3;
         } else used = 2;
         time = new TimeNode('day', compact(dayNum.value), null, body, c0.start, c1.end);
       }
@@ -277,6 +282,15 @@ class TimeNode extends Cut implements TimeSpec {
   ) {
     super(source, start, end);
   }
+}
+
+/** `0800` → `08:00`, `745` → `07:45`: three or four digits that make a time of day; null otherwise. */
+function clockWithoutColon(text: string): string | null {
+  if (text.length < 3 || text.length > 4) return null;
+  for (let i = 0; i < text.length; i++) if (!isDigit(text.charCodeAt(i))) return null;
+  const h = Number(text.slice(0, text.length - 2));
+  const m = Number(text.slice(text.length - 2));
+  return h > 23 || m > 59 ? null : `${String(h).padStart(2, '0')}:${text.slice(text.length - 2)}`;
 }
 
 function looksLikeClock(text: string): boolean {
@@ -662,12 +676,15 @@ function unitWordAt(chunks: readonly Word[], i: number, section: SectionId): Wor
   const next = chunks[i];
   if (!next || next.afterComma) return null;
   if (scanNumber(next.text) > 0) return null;
-  if (isKnownUnitSpelling(next.text)) return next;
-  if (isKey(section, next.text)) return null;
   const after = chunks[i + 1];
-  if (after && !after.afterComma && scanNumber(after.text) > 0) return null;
-  // Something unit-like we do not know: keep it as the unit so the unit check can name it.
-  return next.text.length <= 12 ? next : null;
+  const numberAfter = after !== undefined && !after.afterComma && scanNumber(after.text) > 0;
+  // `pco2 40 ph 7.4`: a unit spelling that is also a key of the section, with a number after it, is that key.
+  if (isKnownUnitSpelling(next.text)) return numberAfter && isKey(section, next.text) ? null : next;
+  if (isKey(section, next.text)) return null;
+  if (numberAfter) return null;
+  // Something unit-like we do not know: keep it as the unit so the unit check can name it. Punctuation
+  // (`hr 80 / rr 20`) is no unit: it is reported as stray text.
+  return next.text.length <= 12 && isUnitStart(next.text.charCodeAt(0)) ? next : null;
 }
 
 /** `source` is the text of the line (spans and numbers' texts refer to it). */
@@ -786,6 +803,10 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
           i += used;
           unit = glued ?? unitWordAt(chunks, i, section);
           if (unit && unit !== glued) i++;
+          if (field?.kind === 'number') {
+            // `hr 80/90`: numbers joined by a slash where the key takes one; nothing would be read from it.
+            issues.push({ check: 'missing-value', span: { start: key.start, end: group.end }, message: `\`${key.text}\` takes one number; \`${group.text}\` is ${group.count === 2 ? 'two' : group.count} numbers, so it is not read.`, fixes: [] });
+          }
         } else if (length > 0) {
           const number = SCANNED.value;
           const comma = SCANNED.decimalComma;
@@ -794,6 +815,10 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
           unit = glued ?? unitWordAt(chunks, i, section);
           if (unit !== glued) i++; // the unit is the next chunk
           items[count++] = numberItem(key.text, keyName, null, field, source, number, next.start, next.start + length, comma, unit, key.start);
+          if (field?.kind === 'pair') {
+            // `bp 120`: a key that takes two numbers with one; nothing would be read from it.
+            issues.push({ check: 'missing-value', span: { start: key.start, end: next.start + length }, message: `\`${key.text}\` takes two numbers joined by a slash (\`${key.text} 120/80\`); \`${next.text.slice(0, length)}\` is one, so it is not read.`, fixes: [] });
+          }
           continue;
         }
       }
