@@ -102,6 +102,8 @@ const TRUE_POSITIVES: readonly (readonly [string, readonly PrivacyHit[]])[] = [
   ['ref K7654321 on the request', [hit(RECORD, 'K7654321')]],
   ['SSN 123-45-6789', [hit(RECORD, '123-45-6789')]],
   ['sticker 87654321 on the sample', [hit(RECORD, '87654321')]],
+  ['MRN 1234567 per GP letter', [hit(RECORD, '1234567')]],
+  ['hospital 1234567X', [hit(RECORD, '1234567X')]],
   // postal codes
   ['lives near SW1A 1AA', [hit(POSTAL, 'SW1A 1AA')]],
   ['moved from Springfield, IL 62704', [hit(POSTAL, '62704')]],
@@ -192,6 +194,10 @@ const TRUE_NEGATIVES: readonly string[] = [
   'RR 30. March to ICU',
   '4 MAR charts signed',
   'MAY NEED NIV',
+  // quantities after a record cue
+  'in this case 25000 units heparin',
+  'record 12500 mL out',
+  'record 12500mL out',
   'partner Present, wife Updated by phone',
   // services, teams and calls after weak cues
   'referred to Occupational Therapy',

@@ -117,7 +117,7 @@ export const emailAddress = privacyCheck('PN505', 'email-address', 'email', 'E-m
 }, (m) => `\`${m.text}\` is an e-mail address; remove it or write [email].`);
 
 export const recordNumber = privacyCheck('PN506', 'record-number', 'record-number', 'Record or identity number', {
-  fires: 'A record-number-like identifier: 5 digits or more after `MRN`, `NHS`, `hospital number`, `ID`, `SSN`, `medicare` and similar cues; without a cue, 7 digits or more in one run (`1234567`, not round quantities like `1000000`), 1 to 3 capitals and 6 digits (`AB123456`), a 10-digit NHS number with a valid check digit (`943 476 5919`), or a social security shape (`123-45-6789`).',
+  fires: 'A record-number-like identifier: 5 digits or more after `MRN`, `NHS`, `hospital number`, `ID`, `SSN`, `medicare` and similar cues; without a cue, 7 digits or more in one run (`1234567`, not round quantities like `1000000`), 1 to 3 capitals and 6 digits (`AB123456`), a 10-digit NHS number with a valid check digit (`943 476 5919`), or a social security shape (`123-45-6789`). A number followed by a unit is a quantity, even after a cue (`record 12500 mL out`).',
   example: 'note      MRN 1234567',
   fix: `Remove it or write \`[id]\` (the quick fix does it). Link notes to records outside the note, never inside it. ${OFF}`,
 }, (m) => `\`${m.text}\` looks like a record or identity number${after(m)}; remove it or write [id].`);

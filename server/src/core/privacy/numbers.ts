@@ -8,7 +8,7 @@
  * Scanning is linear: each candidate is read once from its first character, and the scan
  * resumes after it whether or not it was an identifier.
  */
-import { followedByUnit } from './quantities';
+import { followedByUnit, isGluedQuantity } from './quantities';
 import { endsWithPhrase, isAlnumAt, isDigitAt, isLetterAt, runsOf, withoutTrailing, wordsBefore } from './text';
 import { match, type PrivacyMatch } from './types';
 import { pushAll } from '../util/lists';
@@ -194,10 +194,11 @@ function classify(text: string, c: Candidate): PrivacyMatch | null {
   const cue = numberCueBefore(text, c.start);
   const at = (kind: 'phone' | 'record-number', cueWord: string | null) => match(kind, text, c.start, c.end, cueWord);
 
+  // A number followed by a unit is a quantity (`250 500 1000 mL`), even after a cue
+  // (`record 12500 mL out`, `in this case 25000 units heparin`).
+  if (followedByUnit(text, c.end, cue !== null)) return null;
   if (cue?.kind === 'record' && n >= 5) return at('record-number', cue.word);
   if (cue?.kind === 'phone' && n >= 7 && n <= 15 && c.groups.slice(1).every((g) => g.digits.length >= 2)) return at('phone', cue.word);
-  // Without a cue, a number followed by a unit is a quantity (`250 500 1000 mL`).
-  if (followedByUnit(text, c.end)) return null;
 
   // US social security number shape 123-45-6789.
   if (!c.plus && !paren && sameSeps(c, '-') && hasShape(c, [3, 2, 4])) return at('record-number', null);
@@ -250,7 +251,8 @@ function mixedIdentifiers(text: string): PrivacyMatch[] {
     if (run.kind !== 'mixed' || run.text.length > 20) continue;
     let digits = 0;
     for (let k = 0; k < run.text.length; k++) if (isDigitAt(run.text, k)) digits++;
-    if (digits < 4) continue;
+    // A quantity with its unit glued on (`record 12500mL out`).
+    if (digits < 4 || isGluedQuantity(run.text)) continue;
     const cue = numberCueBefore(text, run.start);
     if (cue?.kind === 'record' && digits >= 4) {
       out.push(match('record-number', text, run.start, run.end, cue.word));
