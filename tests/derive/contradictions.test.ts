@@ -52,3 +52,12 @@ describe('hypercapnia without hypoxaemia (hypoxaemia PaO2 < 60, hypercapnia PaCO
     expect(r['respiratory-failure']).toBe('Hypercapnia without hypoxaemia on air: not consistent with respiratory failure by the PaO2 criterion.');
   });
 });
+
+describe('what to add for an FiO2 (the grammar: FiO2 in force)', () => {
+  it('asks for the FiO2 on the oxygen line that is there, not for an oxygen line', () => {
+    const d = derivation('@ 08:00\noxygen venturi 8\nabg 7.40/40/90/24.4');
+    expect(d.missing.find((m) => m.id === 'pf_ratio')?.message).toMatch(/^add fio2 \(on the venturi line\) to get/);
+    const none = derivation('@ 08:00\nabg 7.40/40/90/24.4');
+    expect(none.missing.find((m) => m.id === 'pf_ratio')?.message).toMatch(/^add fio2 \(or an oxygen line\) to get/);
+  });
+});

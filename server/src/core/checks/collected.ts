@@ -84,7 +84,7 @@ export const badShorthand = syntaxCheck('PN106', 'bad-shorthand', 'Unreadable sh
 export const unknownKey = readCheck('PN201', 'unknown-key', 'Unknown key', 'error', ['units'], FORMAT_RULE, {
   fires: 'An item key is not one of the keys (or aliases) of its section.',
   example: 'vitals hr 118, rrr 26',
-  fix: 'Use a key of the section; the quick fix offers the nearest ones. `pneumark` lists the keys of each section in grammar/README.md.',
+  fix: 'Use a key of the section; the quick fix offers the nearest ones. grammar/README.md lists the keys of each section.',
 });
 
 export const unknownUnit = readCheck('PN202', 'unknown-unit', 'Unknown unit', 'error', ['units'], FORMAT_RULE, {
@@ -107,7 +107,7 @@ export const otherUnitLikely = readCheck('PN204', 'other-unit-likely', 'Value re
 
 export const unknownWord = readCheck('PN205', 'unknown-word', 'Unknown word value', 'error', ['units'], FORMAT_RULE, {
   fires: 'A field that takes a word (sex, device, gas unit) has a word Pneumark does not know.',
-  example: 'oxygen device canula 2',
+  example: 'oxygen device canula',
   fix: 'Use one of the words listed in the message; the quick fix offers the nearest.',
 });
 

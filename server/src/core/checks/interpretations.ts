@@ -48,7 +48,7 @@ function readingRange(ctx: TimepointContext, line: number): Range {
 }
 
 /** A reading is information, never a fault: the same advice for every reading check. */
-const READING_FIX = 'Nothing to fix: a reading to support, not replace, clinical judgement.';
+const READING_FIX = 'Nothing to fix: a reading to support, not replace, clinical judgement. The readings of one gas come together, so the example also shows the other reading checks (PN410–PN413).';
 
 export const oxygenationReading = interpretationCheck('PN410', 'oxygenation-reading', 'Oxygenation reading', ['oxygenation', 'oxygenation-band'], 'hypoxaemia PaO2 < 60 mmHg (setting): common practice, no source; oxygenation bands: ARDS Definition Task Force, JAMA 2012;307:2526–2533 (from memory)', {
   fires: 'A gas shows hypoxaemia, or oxygenation that needs supplemental oxygen (P/F ≤ 300 on oxygen); with PEEP or CPAP ≥ 5 cmH2O, the P/F band of the Berlin definition is named — as an oxygenation band, never as a diagnosis.',

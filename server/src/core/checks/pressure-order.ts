@@ -66,7 +66,7 @@ export const plateauAbovePeak = defineCheck({
   tags: ['plausibility'],
   doc: {
     fires: 'The plateau pressure is higher than the peak pressure at the same timepoint; the plateau is measured after the peak, once flow stops.',
-    example: 'vent plateau 34, peak 29',
+    example: 'vent plateau 28, peak 25',
     fix: 'Check whether the two were swapped.',
   },
   source: 'respiratory mechanics: peak = plateau + resistive pressure (common practice, no source)',

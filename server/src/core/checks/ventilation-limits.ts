@@ -45,7 +45,7 @@ export const plateauHigh = defineCheck({
   tags: ['physiology'],
   doc: {
     fires: `The plateau pressure is above ${PLATEAU_LIMIT_CMH2O} cmH2O, the limit of the lung-protective protocol.`,
-    example: '@ 08:00\nvent peep 10, plateau 33',
+    example: '@ 08:00\nvent peep 18, plateau 33',
     fix: 'Confirm the measurement (a true inspiratory hold); a clinical review decides what follows.',
   },
   source: SOURCES['ardsnet-2000'],

@@ -182,6 +182,8 @@ export class DeriveContext {
   fio2Need(): string {
     const device = this.word('device');
     if (device && (device.word === 'cannula' || device.word === 'mask')) return `fio2 (a ${device.word}'s FiO2 is only an estimate)`;
+    // An oxygen line is there, without its FiO2 (`oxygen venturi 8`): the FiO2 goes on that line.
+    if (device && device.word !== 'room air') return `fio2 (on the ${device.word} line)`;
     return 'fio2 (or an oxygen line)';
   }
 

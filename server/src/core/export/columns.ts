@@ -102,12 +102,12 @@ function timepointColumns(): Column[] {
   return [
     meta('file', 'string', null, 'Path of the note, as given to the exporter.', (c) => c.path),
     meta('timepoint', 'number', null, 'Index of the timepoint in the note, from 0.', (c) => c.timepoint.index),
-    meta('label', 'string', null, 'Label written after the timepoint\'s time; empty when none is written, and with redactProse.', (c) => (c.options.redactProse ? null : c.label)),
-    meta('day', 'number', null, 'Day number of the timepoint (day 1 is the first day), plus shiftDays.', (c) => {
+    meta('label', 'string', null, 'Label written after the timepoint\'s time; empty when none is written, and with `--redact`.', (c) => (c.options.redactProse ? null : c.label)),
+    meta('day', 'number', null, 'Day number of the timepoint (day 1 is the first day), plus `--shift-days`.', (c) => {
       const day = finite(c.timepoint.time.day);
       return day === null ? null : day + c.options.shiftDays;
     }),
-    meta('minutes', 'number', 'min', 'Minutes since 00:00 of day 1, plus shiftDays × 1440; empty when the time is unknown.', (c) => {
+    meta('minutes', 'number', 'min', 'Minutes since 00:00 of day 1, plus `--shift-days` × 1440; empty when the time is unknown.', (c) => {
       const minutes = finite(c.timepoint.time.minutes);
       return minutes === null ? null : minutes + c.options.shiftDays * MINUTES_PER_DAY;
     }),
