@@ -1,13 +1,15 @@
 /**
- * Person names after a cue: a title (`Mr`, `Mrs`, `Ms`, `Miss`, `Mx`, `Dr`, `Prof`), a naming
- * word (`name`, `named`, `aka`, `known as`), a relative (`wife`, `son`, `next of kin` …) or a
- * weaker cue (`patient`, `pt`, `called`, `seen by`, `discussed with` …), followed by
- * capitalised words (`Jane Roe`, `O'Brien`, `Smith-Jones`, `J. Roe`).
+ * Person names after a cue: a title (`Mr`, `Mrs`, `Ms`, `Miss`, `Mx`, `Dr`, `Prof`, capitalised
+ * only), a naming word (`name`, `named`, `aka`, `known as`), a relative (`wife`, `son`, `next of
+ * kin` …) or a weaker cue (`patient`, `pt`, `called`, `seen by`, `discussed with` …), followed by
+ * capitalised words (`Jane Roe`, `O'Brien`, `Smith-Jones`, `J. Roe`) or words in capitals that
+ * are no known abbreviation (`ROE`, not `ICU`).
  *
- * A name word is capitalised with lower-case letters after (`Patel`, not `PEEP` or `review`)
- * and is not one of the common capitalised words of clinical prose (`Review`, `Team`, `Settled`,
- * `Glasgow`, `Outreach` …). After a weak cue two name words are needed (`patient Jane Roe`),
- * so `Patient Settled overnight` and `Patient Controlled Analgesia` stay silent.
+ * A name word is not one of the common capitalised words of clinical prose (`Review`, `Team`,
+ * `Settled`, `Therapy`, `Asthma`, `Advised` …); eponyms (`Glasgow`, `Murray`, `Miller`) count only
+ * after a title (`Dr Miller`) or a given name after a naming word (`name Jo Allen`). After a weak cue, and after a relative followed by `:` or `-`
+ * (`Mother - Asthma`), two name words are needed (`patient Jane Roe`), so `Patient Settled
+ * overnight` and `Patient Controlled Analgesia` stay silent; a comma after a relative ends the cue.
  */
 import { FIELDS } from '../fields/registry';
 import { SECTIONS } from '../fields/sections';
@@ -22,7 +24,7 @@ type Strength = 'strong' | 'weak';
  * (`mod mr`) and `dr` (`chest dr`, a drain) are abbreviations, not titles.
  */
 const TITLES = new Set(['Mr', 'Mrs', 'Ms', 'Miss', 'Mx', 'Dr', 'Prof']);
-/** Naming words: after these (and after a title) eponyms count as names (`name Jo Allen`). */
+/** Naming words: after these a given name may come before an eponym surname (`name Jo Allen`). */
 const NAMING_WORDS = new Set(['name', 'named', 'aka', 'surname', 'forename']);
 /**
  * Relatives: a cue when a name follows directly (`wife Mary`). After `:` or `-` they head a
@@ -117,8 +119,8 @@ const NOT_NAMES = new Set([
 
 /**
  * Eponyms and place names used clinically (`Glasgow`, `Hudson mask`, `Murray score`): no name
- * after a relative or a weak cue, but common surnames too, so after a title or a naming word
- * they count (`Dr Miller`, `name Jo Allen`). Lower case.
+ * after a relative or a weak cue, but common surnames too, so after a title, or after a given
+ * name that follows a naming word, they count (`Dr Miller`, `name Jo Allen`). Lower case.
  */
 const EPONYMS = new Set([
   'glasgow', 'berlin', 'winters', 'hudson', 'guedel', 'yankauer', 'foley', 'swan', 'ganz', 'fick', 'henderson',
@@ -259,8 +261,8 @@ interface NameWord {
 /**
  * Reads one name word at run `i`: a capitalised word (or, after a cue, one in capitals),
  * possibly joined to more by an apostrophe or a hyphen (`O'Brien`, `Smith-Jones`), or an
- * initial (`J` or `J.`). Eponyms count only when `eponymsAllowed` (after a title or a naming
- * word). A word cut before a hyphen and a lower-case word is a prefix (`Ex-smoker`, `Non-`).
+ * initial (`J` or `J.`). Eponyms count only when `eponymsAllowed` (after a title, or after a
+ * given name that follows a naming word). A word cut before a hyphen and a lower-case word is a prefix (`Ex-smoker`, `Non-`).
  */
 function nameWordAt(text: string, runs: readonly Run[], i: number, eponymsAllowed: boolean): NameWord | null {
   const run = runs[i];
@@ -321,7 +323,10 @@ export function findNames(text: string): PrivacyMatch[] {
       if (mark === ',') continue;
       if (mark !== ' ') weak = true;
     }
-    const eponymsAllowed = found.kind === 'title' || found.kind === 'naming';
+    // Eponyms are surnames after a title (`Dr Miller`) and after a given name following a naming
+    // word (`name Jo Allen`); `name Berlin` alone stays a definition.
+    const title = found.kind === 'title';
+    const naming = found.kind === 'naming';
     // `name is Jane Roe`, `name was Jane Roe`.
     if ((first.text === 'is' || first.text === 'was') && runs[j + 1] && isBlankGap(text.slice(first.end, runs[j + 1]!.start))) j++;
     const words: NameWord[] = [];
@@ -333,7 +338,7 @@ export function findNames(text: string): PrivacyMatch[] {
         const gap = text.slice(prevEnd, run.start);
         if (!(isBlankGap(gap) || (words[words.length - 1]!.initial && gap.length === 0))) break;
       }
-      const w = nameWordAt(text, runs, j, eponymsAllowed) ?? (words.length === 0 && eponymsAllowed ? givenNameAt(text, runs, j) : null);
+      const w = nameWordAt(text, runs, j, title || (naming && words.length > 0)) ?? (words.length === 0 && (title || naming) ? givenNameAt(text, runs, j) : null);
       if (!w) break;
       words.push(w);
       prevEnd = w.end;
@@ -344,7 +349,7 @@ export function findNames(text: string): PrivacyMatch[] {
     const full = words.filter((w) => !w.initial).length;
     if (full === 0 || (weak && words.length < 2)) continue;
     // `name: ROE, Jane`, `Name - Roe, Jane`: a surname, a comma, then the given names.
-    if (found.kind === 'naming' && words.length === 1) {
+    if (naming && words.length === 1) {
       const next = runs[j];
       const comma = next ? text.slice(prevEnd, next.start) : '';
       const given = comma === ',' || comma === ', ' ? nameWordAt(text, runs, j, true) : null;
