@@ -38,7 +38,7 @@ describe('control characters from a note', () => {
     expect(shown.out()).toContain('@ day 1 08:00  \\x1b[2J\\x1b]0;pwned\\x07label\\x9b31m\\x7f  line 1');
     expect(shown.out()).toContain('note     seen by \\x1b]0;title\\x07 the team');
     expect(shown.out()).toContain('? bogus\\x1b[2J line');
-    expect(shown.out()).toMatch(/PN202 `\\x1b\[31mbpm` is not a unit/);
+    expect(shown.out()).toMatch(/PN105 `\\x1b\[31mbpm` is not a key/);
     const checked = io(HOSTILE);
     await run(['check', '-'], checked);
     expect(checked.out()).toMatch(/<stdin>:4:1 {2}error {2}PN101 unknown-section {2}`bogus\\x1b\[2J` is not a section/);
