@@ -110,6 +110,10 @@ const TRUE_POSITIVES: readonly (readonly [string, readonly PrivacyHit[]])[] = [
   ['lives in Boston, MA 02118', [hit(POSTAL, '02118')]],
   ['zip 90210-1234', [hit(POSTAL, '90210-1234')]],
   ['postcode m1 1ae', [hit(POSTAL, 'm1 1ae')]],
+  // titles in lower case, as quick notes write them
+  ['seen by dr Patel', [hit(NAME, 'Patel')]],
+  ['mr Wells reviewed', [hit(NAME, 'Wells')]],
+  ['discussed with dr Miller-Jones', [hit(NAME, 'Miller-Jones')]],
   // several at once
   ['Mr Smith, DOB 12/03/1961, MRN 1234567', [hit(NAME, 'Smith'), hit(BIRTH, '12/03/1961'), hit(RECORD, '1234567')]],
   ['NOK John Doe 07700 900123, john.doe@example.org', [hit(NAME, 'John Doe'), hit(PHONE, '07700 900123'), hit(EMAIL, 'john.doe@example.org')]],
@@ -233,9 +237,13 @@ const TRUE_NEGATIVES: readonly string[] = [
   'Dr Ordered ABG',
   'Dr Verbal Order',
   'Dr Will Review',
-  // titles count only capitalised: `mr` mitral regurgitation, `dr` a drain
+  // a title in lower case is also an abbreviation (`mr` mitral regurgitation, `dr` a drain): it
+  // counts only with a name right after it, after blanks alone
   'mod mr, Severe AS',
+  'mod mr Severe AS',
+  'mr Trace, tr Mild',
   'chest dr Removed',
+  'known ms, Relapsing',
   // phrases after `patient` and `pt`
   'Patient Own Drugs checked',
   'Patient Held Record',

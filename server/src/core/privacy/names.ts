@@ -44,6 +44,8 @@ const NOT_PERSON_NAME = new Set(['drug', 'brand', 'trade', 'generic', 'device', 
  * words, clinical states, teams and places of care, eponyms used clinically. Lower case.
  */
 const NOT_NAMES = new Set([
+  // grades and qualifiers of findings (`mod mr Severe`, `mr Trace`: mitral regurgitation)
+  'severe', 'moderate', 'mild', 'trace', 'trivial', 'significant', 'functional', 'mixed', 'minimal', 'marked', 'gross', 'massive',
   // sentence and function words
   'the', 'a', 'an', 'and', 'or', 'but', 'is', 'was', 'has', 'had', 'have', 'with', 'without', 'on', 'in', 'at', 'to', 'for', 'of',
   'not', 'no', 'now', 'then', 'today', 'tonight', 'yesterday', 'tomorrow', 'overnight', 'also', 'again', 'still', 'this', 'that',
@@ -179,7 +181,15 @@ function isNotName(word: string, eponymsAllowed: boolean): boolean {
  * What a cue is: a title (`Dr`), a naming word (`name`), a relative (`wife`), another strong
  * cue (`NOK`, `next of kin`, `known as`) or a weak one (`patient`, `seen by`).
  */
-type CueKind = 'title' | 'naming' | 'relative' | 'strong' | 'weak';
+type CueKind = 'title' | 'lower-title' | 'naming' | 'relative' | 'strong' | 'weak';
+
+/**
+ * Titles written in lower case (`seen by dr Patel`), common in quick notes. Lower case they are
+ * also abbreviations (`mod mr` mitral regurgitation, `chest dr`), so they count only when a
+ * capitalised name word follows after blanks alone. `ms` (multiple sclerosis), `miss` (a verb) and
+ * `mx` (management) never do.
+ */
+const LOWER_TITLES = new Set(['dr', 'mr', 'mrs', 'prof']);
 
 interface Cue {
   readonly kind: CueKind;
@@ -191,6 +201,7 @@ function cueAt(text: string, runs: readonly Run[], i: number): Cue | null {
   const run = runs[i]!;
   if (run.kind !== 'letters') return null;
   if (TITLES.has(run.text)) return { kind: 'title', label: run.text };
+  if (LOWER_TITLES.has(run.text)) return { kind: 'lower-title', label: run.text };
   const lower = run.text.toLowerCase();
   // All-capital words are abbreviations, not cues (`PT` physiotherapy), except `NOK`.
   if (run.text.length > 1 && run.text === run.text.toUpperCase() && lower !== 'nok') return null;
@@ -316,6 +327,8 @@ export function findNames(text: string): PrivacyMatch[] {
     if (!first) continue;
     const mark = cueGapMark(text.slice(cue.end, first.start), found.kind === 'title');
     if (mark === null) continue;
+    // A title in lower case takes the name right after it, after blanks only (`mod mr, Severe AS` is no name).
+    if (found.kind === 'lower-title' && mark !== ' ') continue;
     let weak = found.kind === 'weak';
     if (found.kind === 'relative') {
       // `lives with wife, Independent ADLs`: a comma ends the cue; `Mother - Asthma`, `Father: COPD`
@@ -325,7 +338,7 @@ export function findNames(text: string): PrivacyMatch[] {
     }
     // Eponyms are surnames after a title (`Dr Miller`) and after a given name following a naming
     // word (`name Jo Allen`); `name Berlin` alone stays a definition.
-    const title = found.kind === 'title';
+    const title = found.kind === 'title' || found.kind === 'lower-title';
     const naming = found.kind === 'naming';
     // `name is Jane Roe`, `name was Jane Roe`.
     if ((first.text === 'is' || first.text === 'was') && runs[j + 1] && isBlankGap(text.slice(first.end, runs[j + 1]!.start))) j++;
