@@ -114,6 +114,7 @@ const TRUE_POSITIVES: readonly (readonly [string, readonly PrivacyHit[]])[] = [
   ['seen by dr Patel', [hit(NAME, 'Patel')]],
   ['mr Wells reviewed', [hit(NAME, 'Wells')]],
   ['discussed with dr Miller-Jones', [hit(NAME, 'Miller-Jones')]],
+  ['Mx Jordan Roe attended', [hit(NAME, 'Jordan Roe')]],
   // several at once
   ['Mr Smith, DOB 12/03/1961, MRN 1234567', [hit(NAME, 'Smith'), hit(BIRTH, '12/03/1961'), hit(RECORD, '1234567')]],
   ['NOK John Doe 07700 900123, john.doe@example.org', [hit(NAME, 'John Doe'), hit(PHONE, '07700 900123'), hit(EMAIL, 'john.doe@example.org')]],
@@ -244,6 +245,9 @@ const TRUE_NEGATIVES: readonly string[] = [
   'mr Trace, tr Mild',
   'chest dr Removed',
   'known ms, Relapsing',
+  // `Mx:` heads a management plan
+  'Mx: Antibiotics and fluids',
+  'Imp: CAP, Mx: Augmentin IV',
   // phrases after `patient` and `pt`
   'Patient Own Drugs checked',
   'Patient Held Record',

@@ -327,8 +327,9 @@ export function findNames(text: string): PrivacyMatch[] {
     if (!first) continue;
     const mark = cueGapMark(text.slice(cue.end, first.start), found.kind === 'title');
     if (mark === null) continue;
-    // A title in lower case takes the name right after it, after blanks only (`mod mr, Severe AS` is no name).
-    if (found.kind === 'lower-title' && mark !== ' ') continue;
+    // A title in lower case takes the name right after it, after blanks only (`mod mr, Severe AS` is no name);
+    // so does `Mx`, which with a colon heads a management plan (`Mx: Augmentin IV`).
+    if ((found.kind === 'lower-title' || found.label === 'Mx') && mark !== ' ') continue;
     let weak = found.kind === 'weak';
     if (found.kind === 'relative') {
       // `lives with wife, Independent ADLs`: a comma ends the cue; `Mother - Asthma`, `Father: COPD`
