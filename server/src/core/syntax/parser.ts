@@ -404,6 +404,32 @@ function gluedUnit(chunk: Word, length: number): Located | null {
 let GROUP_UNIT_AT = -1;
 
 /**
+ * What `groupAt` read besides the group: how many chunks it took and the unit glued to its last
+ * number. One record for all reads (read right after the call), rather than an object per group.
+ */
+const GROUP: { used: number; unit: Located | null } = { used: 0, unit: null };
+
+/**
+ * The numbers joined by slashes at chunk `i` (`120/80`, `7.28/56/71/26`, a unit glued to the
+ * last), or, where `spaced`, written with blanks around the slashes (`120 / 80`); null when none.
+ * How many chunks it took and its glued unit are left in GROUP.
+ */
+function groupAt(chunks: readonly Word[], i: number, source: string, spaced: boolean): PairNode | null {
+  const chunk = chunks[i];
+  GROUP.used = 1;
+  GROUP.unit = null;
+  if (!chunk) return null;
+  let last = chunk;
+  let group = readSlashGroup(chunk, source);
+  if (!group && spaced) {
+    group = readSpacedGroup(chunks, i, source);
+    if (group) last = chunks[i + GROUP.used - 1]!;
+  }
+  if (group && GROUP_UNIT_AT >= 0) GROUP.unit = token(last.text.slice(GROUP_UNIT_AT), last.start + GROUP_UNIT_AT, last.end);
+  return group;
+}
+
+/**
  * Numbers joined by single slashes in one chunk (`120/80`, `7.28/56/71/26`), or null. The last
  * number may carry a glued unit (`120/80mmHg`), whose position is left in GROUP_UNIT_AT.
  */
@@ -454,23 +480,17 @@ function isUnitStart(c: number): boolean {
   return (lower >= 0x61 && lower <= 0x7a) || c === 0x25 || c === 0xb0;
 }
 
-/** The unit glued to the slash group just read from `chunk`, if any (see GROUP_UNIT_AT). */
-function groupUnit(chunk: Word): Located | null {
-  return GROUP_UNIT_AT < 0 ? null : token(chunk.text.slice(GROUP_UNIT_AT), chunk.start + GROUP_UNIT_AT, chunk.end);
-}
-
 /**
  * Numbers joined by slashes written with blanks around them (`120 / 80`, `7.28 / 56 / 71 / 26`),
- * from chunk `i`: the group and how many chunks it took, or null. A glued unit may follow the last
- * number (`120 / 80mmHg`, left in GROUP_UNIT_AT as for `readSlashGroup`).
+ * from chunk `i`, or null; how many chunks it took is left in GROUP.used. A glued unit may follow
+ * the last number (`120 / 80mmHg`, left in GROUP_UNIT_AT as for `readSlashGroup`).
  */
-function readSpacedGroup(chunks: readonly Word[], i: number, source: string): { group: PairNode; used: number; last: Word } | null {
+function readSpacedGroup(chunks: readonly Word[], i: number, source: string): PairNode | null {
   GROUP_UNIT_AT = -1;
   const first = chunks[i];
   if (!first || first.text.indexOf('/') >= 0 || scanNumber(first.text) !== first.text.length) return null;
   const packed: number[] = [SCANNED.value, first.start, first.end, SCANNED.decimalComma ? 1 : 0];
   let k = i + 1;
-  let last = first;
   let end = first.end;
   while (k + 1 < chunks.length) {
     const slash = chunks[k]!;
@@ -482,7 +502,6 @@ function readSpacedGroup(chunks: readonly Word[], i: number, source: string): { 
     if (glued && !isUnitStart(next.text.charCodeAt(length))) break;
     packed.push(SCANNED.value, next.start, next.start + length, SCANNED.decimalComma ? 1 : 0);
     k += 2;
-    last = next;
     end = next.start + length;
     if (glued) {
       GROUP_UNIT_AT = length;
@@ -490,7 +509,8 @@ function readSpacedGroup(chunks: readonly Word[], i: number, source: string): { 
     }
   }
   if (packed.length === 4) return null;
-  return { group: new PairNode(source, first.start, end, packed), used: k - i, last };
+  GROUP.used = k - i;
+  return new PairNode(source, first.start, end, packed);
 }
 
 /**
@@ -699,19 +719,10 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
 
   // Shorthand gas: abg 7.28/56/71/26 [kPa]
   if ((section === 'abg' || section === 'vbg') && chunks[start]) {
-    let group = readSlashGroup(chunks[start], source);
-    let glued = group ? groupUnit(chunks[start]) : null;
-    let used = 1;
-    if (!group) {
-      const spaced = readSpacedGroup(chunks, start, source);
-      if (spaced) {
-        group = spaced.group;
-        glued = groupUnit(spaced.last);
-        used = spaced.used;
-      }
-    }
+    const group = groupAt(chunks, start, source, true);
+    const glued = GROUP.unit;
     if (group) {
-      i = start + used;
+      i = start + GROUP.used;
       if (group.count < 2 || group.count > 4) {
         issues.push({ check: 'bad-shorthand', span: { start: group.start, end: group.end }, message: `A shorthand gas has 2 to 4 numbers (pH/PCO2/PO2/HCO3); this one has ${group.count}.`, fixes: [] });
       } else {
@@ -785,18 +796,10 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
           }
         }
       } else {
-        let group = readSlashGroup(next, source);
-        let glued = group ? groupUnit(next) : null;
-        let used = 1;
-        if (!group && field?.kind === 'pair') {
-          // `bp 120 / 80`: a pair written with blanks around its slash.
-          const spaced = readSpacedGroup(chunks, i, source);
-          if (spaced) {
-            group = spaced.group;
-            glued = groupUnit(spaced.last);
-            used = spaced.used;
-          }
-        }
+        // `bp 120 / 80`: a pair may be written with blanks around its slash.
+        const group = groupAt(chunks, i, source, field?.kind === 'pair');
+        const glued = GROUP.unit;
+        const used = GROUP.used;
         const length = group ? 0 : numberChunk(next);
         if (group) {
           value = group;
