@@ -181,15 +181,15 @@ function isNotName(word: string, eponymsAllowed: boolean): boolean {
  * What a cue is: a title (`Dr`), a naming word (`name`), a relative (`wife`), another strong
  * cue (`NOK`, `next of kin`, `known as`) or a weak one (`patient`, `seen by`).
  */
-type CueKind = 'title' | 'lower-title' | 'naming' | 'relative' | 'strong' | 'weak';
+type CueKind = 'title' | 'bare-title' | 'naming' | 'relative' | 'strong' | 'weak';
 
 /**
- * Titles written in lower case (`seen by dr Patel`), common in quick notes. Lower case they are
- * also abbreviations (`mod mr` mitral regurgitation, `chest dr`), so they count only when a
- * capitalised name word follows after blanks alone. `ms` (multiple sclerosis), `miss` (a verb) and
- * `mx` (management) never do.
+ * Titles that are also abbreviations, so they count only with a capitalised name word right after
+ * them, after blanks alone (a `bare-title` cue): in lower case (`seen by dr Patel`, common in quick
+ * notes, but `mod mr` mitral regurgitation, `chest dr`), and `Mx`, which with a colon heads a
+ * management plan (`Mx: Augmentin IV`). `ms` (multiple sclerosis), `miss` (a verb) and `mx` never count.
  */
-const LOWER_TITLES = new Set(['dr', 'mr', 'mrs', 'prof']);
+const BARE_TITLES = new Set(['dr', 'mr', 'mrs', 'prof', 'Mx']);
 
 interface Cue {
   readonly kind: CueKind;
@@ -200,8 +200,8 @@ interface Cue {
 function cueAt(text: string, runs: readonly Run[], i: number): Cue | null {
   const run = runs[i]!;
   if (run.kind !== 'letters') return null;
+  if (BARE_TITLES.has(run.text)) return { kind: 'bare-title', label: run.text };
   if (TITLES.has(run.text)) return { kind: 'title', label: run.text };
-  if (LOWER_TITLES.has(run.text)) return { kind: 'lower-title', label: run.text };
   const lower = run.text.toLowerCase();
   // All-capital words are abbreviations, not cues (`PT` physiotherapy), except `NOK`.
   if (run.text.length > 1 && run.text === run.text.toUpperCase() && lower !== 'nok') return null;
@@ -327,9 +327,8 @@ export function findNames(text: string): PrivacyMatch[] {
     if (!first) continue;
     const mark = cueGapMark(text.slice(cue.end, first.start), found.kind === 'title');
     if (mark === null) continue;
-    // A title in lower case takes the name right after it, after blanks only (`mod mr, Severe AS` is no name);
-    // so does `Mx`, which with a colon heads a management plan (`Mx: Augmentin IV`).
-    if ((found.kind === 'lower-title' || found.label === 'Mx') && mark !== ' ') continue;
+    // A title that is also an abbreviation takes the name right after it, after blanks only (`mod mr, Severe AS`).
+    if (found.kind === 'bare-title' && mark !== ' ') continue;
     let weak = found.kind === 'weak';
     if (found.kind === 'relative') {
       // `lives with wife, Independent ADLs`: a comma ends the cue; `Mother - Asthma`, `Father: COPD`
@@ -339,7 +338,7 @@ export function findNames(text: string): PrivacyMatch[] {
     }
     // Eponyms are surnames after a title (`Dr Miller`) and after a given name following a naming
     // word (`name Jo Allen`); `name Berlin` alone stays a definition.
-    const title = found.kind === 'title' || found.kind === 'lower-title';
+    const title = found.kind === 'title' || found.kind === 'bare-title';
     const naming = found.kind === 'naming';
     // `name is Jane Roe`, `name was Jane Roe`.
     if ((first.text === 'is' || first.text === 'was') && runs[j + 1] && isBlankGap(text.slice(first.end, runs[j + 1]!.start))) j++;
