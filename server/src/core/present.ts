@@ -108,9 +108,15 @@ export function isKpaField(fieldId: string): boolean {
  * null when the value is not a gas pressure (then it is shown as `formatStated` shows it).
  */
 export function statedInKpa(s: StatedValue): string | null {
+  const number = statedKpaNumber(s);
+  return number === null ? null : `${number} kPa`;
+}
+
+/** `9.6`: the number of `statedInKpa` without its unit; null when the value is not a gas pressure. */
+export function statedKpaNumber(s: StatedValue): string | null {
   if (s.unit !== 'mmHg' || !isKpaField(s.fieldId)) return null;
   const number = statedNumber(s, 'kPa');
-  return number === null || number === '' ? null : `${number} kPa`;
+  return number === null || number === '' ? null : number;
 }
 
 /** The value in the other unit system, when the field has one (mmHg ↔ kPa, °C ↔ °F, ...). */

@@ -13,7 +13,7 @@ import type { InputValue, Timepoint } from '../analysis/model';
 import { describeInputOrigin, substitute } from '../derive/context';
 import type { DerivedValue, Term } from '../derive/model';
 import { derivedDef } from '../derive/registry';
-import { isKpaField, kpaNumber, showsKpa, statedInKpa, statedNumber } from '../present';
+import { isKpaField, kpaNumber, showsKpa, statedInKpa, statedKpaNumber, statedNumber } from '../present';
 import { formatNumber } from '../util/format';
 import { cautionLine, code, escapeMarkdown, paragraphs } from './markdown';
 
@@ -56,8 +56,7 @@ function statedOfTerm(t: Term, tp: Timepoint): InputValue | undefined {
 /** A gas-pressure input's number in kPa: as the note wrote it where it was written in kPa. */
 function termKpa(t: Term, tp: Timepoint): string {
   const input = statedOfTerm(t, tp);
-  const written = input ? statedInKpa(input.stated) : null;
-  return written ? written.slice(0, -' kPa'.length) : kpaNumber(t.value);
+  return (input ? statedKpaNumber(input.stated) : null) ?? kpaNumber(t.value);
 }
 
 /** `PaO2 71 mmHg`: an input as shown; at a kPa timepoint, a gas pressure is `PaO2 9.5 kPa (71 mmHg)`. */
