@@ -45,7 +45,7 @@ import {
 import { ProjectConfigs } from '../node/project-config';
 import { DEFAULT_CLIENT_SETTINGS, effectiveSettings, readClientSettings, settingsKey, type ClientSettings, type EffectiveSettings } from './settings';
 import { IdleCollector } from './memory';
-import { fixedFindings, isHintRef, rangesOverlap, toCodeAction, toCompletionItem, toDiagnostic, toDocumentSymbol, toInlayHint } from './translate';
+import { isHintRef, rangesOverlap, toCodeAction, toCompletionItem, toDiagnostic, toDocumentSymbol, toInlayHint } from './translate';
 
 interface NoteState {
   session: NoteSession;
@@ -444,7 +444,7 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     const only = params.context.only;
     return codeActions(result, params.range)
       .filter((a) => !only || only.some((k) => a.kind === k || a.kind.startsWith(`${k}.`)))
-      .map((a) => toCodeAction(a, doc.uri, diagnostics, fixedFindings(a, result.findings)));
+      .map((a) => toCodeAction(a, doc.uri, diagnostics));
   }));
 
   connection.onDocumentSymbol(withResult('symbols', [], (result) => documentSymbols(result).map(toDocumentSymbol)));

@@ -104,11 +104,11 @@ const ACTION_KIND: Readonly<Record<ActionInfo['kind'], string>> = {
 };
 
 /**
- * A code action, with the diagnostics it resolves: those of the findings it fixes (`fixed`, see
- * `fixedFindings`), matched by code and range. Another finding of the same code is not claimed.
+ * A code action, with the diagnostics it resolves: those of the findings the core says it fixes
+ * (`resolves`), matched by code and range. Another finding of the same code is not claimed.
  */
-export function toCodeAction(a: ActionInfo, uri: string, diagnostics: readonly Diagnostic[], fixed: readonly Finding[] = []): CodeAction {
-  const keys = new Set(fixed.map((f) => diagnosticKey(f.code, f.range)));
+export function toCodeAction(a: ActionInfo, uri: string, diagnostics: readonly Diagnostic[]): CodeAction {
+  const keys = new Set((a.resolves ?? []).map((f) => diagnosticKey(f.code, f.range)));
   const related = keys.size > 0 ? diagnostics.filter((d) => typeof d.code === 'string' && keys.has(diagnosticKey(d.code, d.range))) : [];
   return {
     title: a.title,
@@ -121,30 +121,6 @@ export function toCodeAction(a: ActionInfo, uri: string, diagnostics: readonly D
 
 function diagnosticKey(code: string, r: Range): string {
   return `${code}@${r.start.line}:${r.start.character}-${r.end.line}:${r.end.character}`;
-}
-
-function editKey(e: TextEdit): string {
-  return `${e.range.start.line}:${e.range.start.character}-${e.range.end.line}:${e.range.end.character}=${e.newText}`;
-}
-
-/**
- * The findings an action fixes: those of its codes with a fix whose edits the action makes (a
- * quick fix makes one finding's fix; a fix-all the fixes of many). A fix without edits is the
- * action only when titles match.
- */
-export function fixedFindings(a: ActionInfo, findings: readonly Finding[]): Finding[] {
-  const codes = a.findingCodes;
-  if (!codes || codes.length === 0) return [];
-  const made = new Set(a.edits.map(editKey));
-  const out: Finding[] = [];
-  for (const f of findings) {
-    if (!codes.includes(f.code)) continue;
-    const fixes = f.fixes.some((fix) => fix.edits.length > 0
-      ? fix.edits.every((e) => made.has(editKey(e)))
-      : a.edits.length === 0 && fix.title === a.title);
-    if (fixes) out.push(f);
-  }
-  return out;
 }
 
 const SYMBOL_KIND: Readonly<Record<SymbolInfo['kind'], SymbolKind>> = {

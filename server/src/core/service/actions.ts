@@ -38,7 +38,7 @@ export function codeActions(result: NoteResult, range: Range): ActionInfo[] {
     if (!touches(f.range, range)) continue;
     for (const fix of f.fixes) {
       if (!keepsValues(result, fix)) continue;
-      actions.push({ title: fix.title, kind: 'quickfix', edits: [...fix.edits], findingCodes: [f.code], ...(fix.preferred ? { preferred: true } : {}) });
+      actions.push({ title: fix.title, kind: 'quickfix', edits: [...fix.edits], findingCodes: [f.code], resolves: [f], ...(fix.preferred ? { preferred: true } : {}) });
     }
   }
 
@@ -163,19 +163,19 @@ function preferredFix(f: Finding): Fix | undefined {
 }
 
 /** Edits of the safe fixes of these findings, skipping any that would overlap an earlier one. */
-function safeEdits(findings: readonly Finding[]): { edits: TextEdit[]; codes: string[]; count: number } {
+function safeEdits(findings: readonly Finding[]): { edits: TextEdit[]; codes: string[]; count: number; fixed: Finding[] } {
   const edits: TextEdit[] = [];
   const codes = new Set<string>();
-  let count = 0;
+  const fixed: Finding[] = [];
   for (const f of findings) {
     const fix = preferredFix(f);
     if (!fix || fix.edits.length === 0) continue;
     if (editsOverlap([...edits, ...fix.edits])) continue;
     pushAll(edits, fix.edits);
     codes.add(f.code);
-    count++;
+    fixed.push(f);
   }
-  return { edits, codes: [...codes], count };
+  return { edits, codes: [...codes], count: fixed.length, fixed };
 }
 
 function fixAllActions(result: NoteResult, range: Range): ActionInfo[] {
@@ -187,12 +187,12 @@ function fixAllActions(result: NoteResult, range: Range): ActionInfo[] {
   const out: ActionInfo[] = [];
   const codesHere = [...new Set(withSafeFix.filter((f) => touches(f.range, range)).map((f) => f.code))];
   for (const code of codesHere) {
-    const { edits, count } = safeEdits(withSafeFix.filter((f) => f.code === code));
+    const { edits, count, fixed } = safeEdits(withSafeFix.filter((f) => f.code === code));
     if (count < 2) continue;
     const title = checkByCodeOrAlias(code)?.title ?? code;
-    out.push({ title: `Fix all in the note: ${title} (${code}, ${count} places)`, kind: 'quickfix', edits, findingCodes: [code] });
+    out.push({ title: `Fix all in the note: ${title} (${code}, ${count} places)`, kind: 'quickfix', edits, findingCodes: [code], resolves: fixed });
   }
   const all = safeEdits(withSafeFix);
-  if (all.count > 0) out.push({ title: `Apply every safe fix in the note (${all.count})`, kind: 'source.fixAll', edits: all.edits, findingCodes: all.codes });
+  if (all.count > 0) out.push({ title: `Apply every safe fix in the note (${all.count})`, kind: 'source.fixAll', edits: all.edits, findingCodes: all.codes, resolves: all.fixed });
   return out;
 }

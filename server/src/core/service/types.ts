@@ -4,7 +4,7 @@
  * FoldingRange). Positions are LSP-style: 0-based lines, UTF-16 code units.
  */
 import type { DerivedCategory } from '../derive/model';
-import type { Position, Range, TextEdit } from '../types';
+import type { Finding, Position, Range, TextEdit } from '../types';
 
 /** The one short caution every hover with clinical content ends with. */
 export const CAUTION = 'Decision support only — defer to local protocols and licensed practice.';
@@ -59,6 +59,8 @@ export interface ActionInfo {
   readonly edits: TextEdit[];
   /** Codes of the findings the action resolves. */
   readonly findingCodes?: string[];
+  /** The findings the action resolves (a quick fix one, a fix-all those whose fixes it makes). */
+  readonly resolves?: readonly Finding[];
   readonly preferred?: boolean;
 }
 
