@@ -21,7 +21,7 @@
  */
 import { isKnownUnitSpelling } from '../fields/units';
 import { isBlank } from '../syntax/lexer';
-import { parseLine, parseNote } from '../syntax/parser';
+import { eachLineBetween, parseLine, parseNote } from '../syntax/parser';
 import type { ItemNode, LineNode, SectionLine, TimepointLine } from '../syntax/tree';
 import type { TextEdit } from '../types';
 import { applyEdits } from './text-edits';
@@ -52,7 +52,7 @@ export function formatEdits(text: string, lines?: LineSpan): TextEdit[] {
     return edits;
   }
   if (lines.end < lines.start || lines.end < 0) return edits;
-  forLinesIn(text, Math.max(0, lines.start), lines.end, (line, number) => pushLineEdit(edits, parseLine(line, number)));
+  eachLineBetween(text, Math.max(0, lines.start), lines.end, (line, number) => pushLineEdit(edits, parseLine(line, number)));
   return edits;
 }
 
@@ -61,28 +61,6 @@ function pushLineEdit(edits: TextEdit[], node: LineNode): void {
   if (formatted !== null && formatted !== node.text) edits.push(lineEdit(node.line, node.text, formatted));
 }
 
-/**
- * Hands the text of lines `first` to `last` (inclusive, those that exist) to `visit`, cutting
- * lines as the parser does (`\n`, `\r\n` and `\r` all end a line) and stopping after `last`.
- */
-function forLinesIn(text: string, first: number, last: number, visit: (line: string, number: number) => void): void {
-  let start = 0;
-  let number = 0;
-  let lf = text.indexOf('\n');
-  let cr = text.indexOf('\r');
-  while (number <= last) {
-    if (lf < 0 && cr < 0) {
-      if (number >= first) visit(text.slice(start), number);
-      return;
-    }
-    const end = cr < 0 || (lf >= 0 && lf < cr) ? lf : cr;
-    if (number >= first) visit(text.slice(start, end), number);
-    start = end === cr && lf === end + 1 ? end + 2 : end + 1;
-    if (lf >= 0 && lf < start) lf = text.indexOf('\n', start);
-    if (cr >= 0 && cr < start) cr = text.indexOf('\r', start);
-    number++;
-  }
-}
 
 /** The canonical form of one parsed line, or null when the line is left as it is. */
 export function formatLine(node: LineNode): string | null {

@@ -33,21 +33,29 @@ export interface LineSlice {
 /**
  * Cuts text into lines as LSP does (`\n`, `\r\n` and `\r` all end a line), handing each line
  * and its start offset to `visit`. Line ends are found with indexOf (a native search) for each
- * terminator. Returns the first terminator (see `firstEol`).
+ * terminator. Given `first` and `last` (line numbers, inclusive), only those lines are cut out and
+ * visited, and the cutting stops after `last`. Returns the first terminator (see `firstEol`).
  */
-function cutLines(text: string, visit: (line: string, offset: number) => void): NoteTree['eol'] {
+function cutLines(text: string, visit: (line: string, offset: number, number: number) => void, first = 0, last = Infinity): NoteTree['eol'] {
   let start = 0;
+  let number = 0;
   let lf = text.indexOf('\n');
   let cr = text.indexOf('\r');
-  while (lf >= 0 || cr >= 0) {
+  while ((lf >= 0 || cr >= 0) && number <= last) {
     const end = cr < 0 || (lf >= 0 && lf < cr) ? lf : cr;
-    visit(text.slice(start, end), start);
+    if (number >= first) visit(text.slice(start, end), start, number);
+    number++;
     start = end === cr && lf === end + 1 ? end + 2 : end + 1;
     if (lf >= 0 && lf < start) lf = text.indexOf('\n', start);
     if (cr >= 0 && cr < start) cr = text.indexOf('\r', start);
   }
-  visit(text.slice(start), start);
+  if (number >= first && number <= last) visit(text.slice(start), start, number);
   return firstEol(text);
+}
+
+/** Hands lines `first` to `last` (inclusive, those that exist) and their numbers to `visit`, cut as the parser cuts them. */
+export function eachLineBetween(text: string, first: number, last: number, visit: (line: string, number: number) => void): void {
+  cutLines(text, (line, _offset, number) => { visit(line, number); }, first, last);
 }
 
 /** The line terminator used first in the text (`\n` when it has none). */
