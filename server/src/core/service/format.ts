@@ -61,7 +61,6 @@ function pushLineEdit(edits: TextEdit[], node: LineNode): void {
   if (formatted !== null && formatted !== node.text) edits.push(lineEdit(node.line, node.text, formatted));
 }
 
-
 /** The canonical form of one parsed line, or null when the line is left as it is. */
 export function formatLine(node: LineNode): string | null {
   if (node.issues.length > 0) return null;
