@@ -9,9 +9,8 @@ import type { NoteResult } from '../core/check-note';
 import type { StatedValue, Timepoint } from '../core/analysis/model';
 import { shortOf, formatAlternative, formatStated, describeOrigin, showsKpa, statedInKpa } from '../core/present';
 import { fieldById } from '../core/fields/registry';
-import { convert, unitById } from '../core/fields/units';
-import { displayUnit } from '../core/analysis/read-value';
-import { formatNumber } from '../core/util/format';
+import { unitById } from '../core/fields/units';
+import { displayUnit, inLikelyUnit } from '../core/analysis/read-value';
 import type { LineNode } from '../core/syntax/tree';
 import type { TimepointDerivation } from '../core/derive/model';
 import type { Finding } from '../core/types';
@@ -99,11 +98,10 @@ export function ifLikelyUnit(s: StatedValue): string | null {
   const read = unitById(s.readUnit ?? '');
   const written = s.item.number;
   if (!field || !likely || !read || written === null) return null;
-  const inRead = convert(written, likely, read);
+  const inRead = inLikelyUnit(field, written, likely, read);
   if (inRead === null) return null;
-  const decimals = read.id === field.unit ? field.decimals : Math.max(field.decimals, 1);
   const unit = read.id === 'fraction' || read.id === 'ph' ? '' : ` ${displayUnit(read.id)}`;
-  return `if ${displayUnit(likely.id)}: ${formatNumber(inRead, decimals)}${unit}`;
+  return `if ${displayUnit(likely.id)}: ${inRead}${unit}`;
 }
 
 function renderTimepointFooter(tp: Timepoint, derivation: TimepointDerivation | undefined, p: Paint): string[] {

@@ -149,7 +149,7 @@ export function readItem(item: ItemNode, section: SectionId, line: number, ctx: 
     if (likely) {
       usable = false;
       unitDoubt = likely.id;
-      issues.push(otherUnitIssue(item, field, line, readUnit, likely, canonical));
+      issues.push(otherUnitIssue(item, field, line, readUnit, likely));
     }
   }
   return new Stated(section, line, item, value, parts, null, readUnit.id, unitImplied, unitDoubt, usable);
@@ -190,18 +190,29 @@ function otherUnitLikely(field: FieldDef, canonicalValue: number, written: numbe
   return null;
 }
 
-function otherUnitIssue(item: ItemNode, field: FieldDef, line: number, readUnit: UnitDef, likely: UnitDef, canonical: UnitDef): ReadIssue {
+/**
+ * A bare number doubted in the unit it was read in (PN204), taken in the likely unit and written
+ * in the unit it was read in: `40` for a PaCO2 of 5.3 read in mmHg but likely kPa. Null when the
+ * units do not convert. With the field's decimals, at least one when that unit is not canonical.
+ */
+export function inLikelyUnit(field: FieldDef, written: number, likely: UnitDef, readUnit: UnitDef): string | null {
+  const inRead = convert(written, likely, readUnit);
+  if (inRead === null) return null;
+  const decimals = readUnit.id === field.unit ? field.decimals : Math.max(field.decimals, 1);
+  return formatNumber(inRead, decimals);
+}
+
+function otherUnitIssue(item: ItemNode, field: FieldDef, line: number, readUnit: UnitDef, likely: UnitDef): ReadIssue {
   const value = item.value!;
   const written = value.kind === 'number' ? value.value : NaN;
-  const inRead = convert(written, likely, readUnit);
+  const inRead = inLikelyUnit(field, written, likely, readUnit);
   // In a shorthand gas a unit belongs after the whole group (it applies to both pressures),
   // so only the conversion is offered there.
   const fixes: LineFix[] = item.implied === 'shorthand'
     ? []
     : [{ title: `Mark as ${likely.id}`, edits: [{ span: { start: value.span.end, end: value.span.end }, newText: ` ${likely.id}` }], preferred: false }];
   if (inRead !== null) {
-    const decimals = readUnit.id === canonical.id ? field.decimals : Math.max(field.decimals, 1);
-    fixes.push({ title: `Convert to ${formatNumber(inRead, decimals)} ${readUnit.id}`, edits: [{ span: value.span, newText: formatNumber(inRead, decimals) }] });
+    fixes.push({ title: `Convert to ${inRead} ${readUnit.id}`, edits: [{ span: value.span, newText: inRead }] });
   }
   return {
     check: 'other-unit-likely',
