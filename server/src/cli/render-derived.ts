@@ -1,8 +1,8 @@
 /** Derived values, missing inputs and interpretations under a timepoint. */
 import type { Timepoint } from '../core/analysis/model';
 import type { TimepointDerivation } from '../core/derive/model';
-import { kpaNumber, showsKpa } from '../core/present';
-import { formatNumber } from '../core/util/format';
+import { showsKpa } from '../core/present';
+import { kpaText, numberText } from '../core/service/derived-hover';
 import type { Paint } from './colour';
 
 /** Where the timepoint's gas unit is kPa, gas pressures in kPa first: `P/F 28.2 kPa (212 mmHg)`. */
@@ -13,12 +13,11 @@ export function renderDerived(tp: Timepoint, d: TimepointDerivation | undefined,
   const shown = d.derived.filter((v) => v.id !== 'barometric' || v.inputs[0]?.origin.kind !== 'default');
   if (shown.length > 0) {
     const parts = shown.map((v) => {
-      const number = v.range ? `${formatNumber(v.range.low, v.decimals)}–${formatNumber(v.range.high, v.decimals)}` : formatNumber(v.value, v.decimals);
+      const number = numberText(v);
       // An estimate says so once: in its short name (`FiO2 est`) or by a mark after it.
       const marks = `${v.estimate && !/\best\b/.test(v.short) ? ' est.' : ''}${v.usesCarried ? '*' : ''}`;
       if (v.unit === 'mmHg' && kpa) {
-        const inKpa = v.range ? `${kpaNumber(v.range.low)}–${kpaNumber(v.range.high)}` : kpaNumber(v.value);
-        return `${v.short} ${p.bold(inKpa)} kPa (${number} mmHg)${marks}`;
+        return `${v.short} ${p.bold(kpaText(v))} kPa (${number} mmHg)${marks}`;
       }
       return `${v.short} ${p.bold(number)}${v.unit ? ` ${v.unit}` : ''}${marks}`;
     });

@@ -18,12 +18,12 @@ import { formatNumber } from '../util/format';
 import { cautionLine, code, escapeMarkdown, paragraphs } from './markdown';
 
 /** A value's number, or its span (`23–27`), in its own unit (mmHg for a gas pressure). */
-function numberText(d: DerivedValue): string {
+export function numberText(d: DerivedValue): string {
   return d.range ? `${formatNumber(d.range.low, d.decimals)}–${formatNumber(d.range.high, d.decimals)}` : formatNumber(d.value, d.decimals);
 }
 
 /** The same in kPa (a gas pressure). */
-function kpaText(d: DerivedValue): string {
+export function kpaText(d: DerivedValue): string {
   return d.range ? `${kpaNumber(d.range.low)}–${kpaNumber(d.range.high)}` : kpaNumber(d.value);
 }
 
