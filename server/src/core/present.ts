@@ -98,6 +98,11 @@ export function kpaNumber(mmHg: number): string {
   return formatNumber(kpaFromMmhg(mmHg), KPA_DECIMALS);
 }
 
+/** `28.2 kPa (212)`: a pressure in mmHg, compact, kPa first (inlay hints, the status bar). */
+export function kpaFirstCompact(mmHg: number, decimals: number): string {
+  return `${kpaNumber(mmHg)} kPa (${formatNumber(mmHg, decimals)})`;
+}
+
 /** Whether a field is a gas pressure a note may write in kPa (PaO2, PaCO2; not a blood pressure). */
 export function isKpaField(fieldId: string): boolean {
   return fieldById(fieldId)?.units?.includes('kPa') === true;

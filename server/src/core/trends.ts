@@ -6,7 +6,7 @@ import type { Timepoint } from './analysis/model';
 import type { NoteResult } from './check-note';
 import type { TimepointDerivation } from './derive/model';
 import { derivedValueOf } from './derive/registry';
-import { kpaNumber, showsKpa, statedInKpa } from './present';
+import { kpaFirstCompact, showsKpa, statedInKpa } from './present';
 import { formatNumber } from './util/format';
 
 export const TREND_FIELDS = ['pao2', 'paco2', 'ph', 'spo2', 'fio2', 'peep'] as const;
@@ -73,7 +73,7 @@ export function timepointSummary(result: NoteResult, line: number): { label: str
   const parts: string[] = [];
   const kpa = showsKpa(tp);
   const pf = derivedValueOf(d, 'pf_ratio');
-  if (pf) parts.push(kpa ? `P/F ${kpaNumber(pf.value)} kPa (${formatNumber(pf.value, 0)})` : `P/F ${formatNumber(pf.value, 0)}`);
+  if (pf) parts.push(`P/F ${kpa ? kpaFirstCompact(pf.value, 0) : formatNumber(pf.value, 0)}`);
   const show = (id: string, name: string, decimals: number, unit = '') => {
     const v = tp.values.get(id);
     if (!v?.stated.usable || v.stated.value === null || v.origin.kind !== 'here') return;

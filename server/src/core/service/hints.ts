@@ -14,7 +14,7 @@
 import type { Timepoint } from '../analysis/model';
 import type { NoteResult } from '../check-note';
 import type { DerivedValue, Interpretation, Term, TimepointDerivation } from '../derive/model';
-import { kpaNumber } from '../present';
+import { kpaFirstCompact, kpaNumber } from '../present';
 import { formatNumber } from '../util/format';
 import { derivedBody, derivedInKpa, termText } from './derived-hover';
 import { contentEnd, lineAt } from './locate';
@@ -191,8 +191,8 @@ export function inlayHints(result: NoteResult, lines: LineSpan, options: HintOpt
 
 /** `178`, `628 mmHg` (with `unit`), or for a gas pressure in kPa `23.7 kPa (178)`. */
 function hintNumber(d: DerivedValue, kpa: boolean, unit: boolean): string {
+  if (kpa) return kpaFirstCompact(d.value, d.decimals);
   const number = formatNumber(d.value, d.decimals);
-  if (kpa) return `${kpaNumber(d.value)} kPa (${number})`;
   return unit && d.unit ? `${number} ${d.unit}` : number;
 }
 
