@@ -1,7 +1,11 @@
 // What check and show print for people: control characters from a note are made visible (an
-// escape sequence in a label must not clear the screen or retitle the window), a value whose unit
+// escape sequence in a label must not clear the screen or retitle the window), and so are
+// bidirectional controls in notes and file names (they would reorder what is shown), a value whose unit
 // is in doubt is never shown converted from the doubted unit, and --quiet lists errors only in
 // every format.
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { memoryIo, type MemoryIo } from '../helpers/memory-io';
 import { run } from '../../server/src/cli/main';
@@ -65,6 +69,141 @@ describe('control characters from a note', () => {
       expect(out.out(), format).not.toMatch(/[\u0000-\u0008\u000b-\u001f]/);
       expect(out.out(), format).toContain('\\u001b[');
     }
+  });
+});
+
+/** Every character that reorders text when it is displayed. */
+const BIDI = /[\u061c\u200e\u200f\u202a-\u202e\u2066-\u2069]/;
+const RLO = '\u202e';
+
+/** Bidirectional controls in a label, prose, a stray word, a word value and a value. */
+const REORDERING = [
+  `@ day 1 08:00  bed ${RLO}4 \u2066left\u2069`,
+  `vitals hr 80 ${RLO}bpm`,
+  `note seen by ${RLO}the\u200f team\u061c`,
+  `bog${RLO}us line`,
+  `oxygen device can${RLO}ula`,
+  '@ day 1 09:00',
+  'vitals spo2 90',
+  '',
+].join('\n');
+
+const tempDir = (): string => mkdtempSync(join(tmpdir(), 'pneumark-visible-'));
+/** A name that a terminal would show as `ward-uenp.x`-like gibberish, or as a different name. */
+const TRICK_NAME = `ward${RLO}uenp.x.pneu`;
+
+describe('bidirectional controls', () => {
+  it('are written as \\u{HHHH}, every one of them; letters of right-to-left scripts are kept', () => {
+    expect(visible('a\u202ab\u202bc\u202cd\u202de\u202ef')).toBe('a\\u{202A}b\\u{202B}c\\u{202C}d\\u{202D}e\\u{202E}f');
+    expect(visible('\u2066\u2067\u2068\u2069')).toBe('\\u{2066}\\u{2067}\\u{2068}\\u{2069}');
+    expect(visible('\u200e\u200f\u061c')).toBe('\\u{200E}\\u{200F}\\u{061C}');
+    expect(visible('\u200b\u2028\u2060')).toBe('\u200b\u2028\u2060');
+    expect(visible('סימן שם · علامة')).toBe('סימן שם · علامة');
+    expect(visible('\u001b\u202e')).toBe('\\x1b\\u{202E}');
+  });
+
+  it('from a note are written escaped by show and check, with and without colour', async () => {
+    for (const colour of [false, true]) {
+      for (const command of ['show', 'check']) {
+        const out = io(REORDERING, colour);
+        await run([command, '-'], out);
+        expect(out.out(), command).not.toMatch(BIDI);
+        expect(out.out(), command).toContain('\\u{202E}');
+      }
+    }
+    const shown = io(REORDERING);
+    await run(['show', '-'], shown);
+    expect(shown.out()).toContain('@ day 1 08:00  bed \\u{202E}4 \\u{2066}left\\u{2069}  line 1');
+    expect(shown.out()).toContain('note     seen by \\u{202E}the\\u{200F} team\\u{061C}');
+    expect(shown.out()).toContain('? bog\\u{202E}us line');
+    expect(shown.out()).toContain('(carried from bed \\u{202E}4 \\u{2066}left\\u{2069}, line 5)');
+    const checked = io(REORDERING);
+    await run(['check', '-'], checked);
+    expect(checked.out()).toContain('<stdin>:2:14  error  PN105 stray-text  `\\u{202E}bpm` is not a key');
+    expect(checked.out()).toContain('<stdin>:5:15  error  PN205 unknown-word  `can\\u{202E}ula` is not a known value');
+  });
+
+  it('in file names are written escaped by check, show, fmt and in the errors that name a file', async () => {
+    const dir = tempDir();
+    writeFileSync(join(dir, TRICK_NAME), '@ 08:00\nvitals spo2 104\n');
+    const escapedName = 'ward\\u{202E}uenp.x.pneu';
+    const checked = io();
+    expect(await run(['check', join(dir, TRICK_NAME)], checked)).toBe(1);
+    expect(checked.out()).toContain(`${escapedName}:2:13  error`);
+    const shown = io();
+    await run(['show', join(dir, TRICK_NAME)], shown);
+    expect(shown.out().split('\n')[0]).toContain(escapedName);
+
+    const messy = tempDir();
+    writeFileSync(join(messy, TRICK_NAME), '@ 08:00   first\nvitals hr 80,rr 12\n');
+    const listed = memoryIo({ cwd: messy });
+    expect(await run(['fmt', '--check', '.'], listed)).toBe(1);
+    expect(listed.out()).toBe(`${escapedName}\n`);
+    const written = memoryIo({ cwd: messy });
+    expect(await run(['fmt', '--write', '.'], written)).toBe(0);
+    expect(written.out()).toBe(`formatted ${escapedName}\n`);
+    expect(readFileSync(join(messy, TRICK_NAME), 'utf8')).toBe('@ 08:00  first\nvitals    hr 80, rr 12\n');
+
+    const broken = tempDir();
+    writeFileSync(join(broken, TRICK_NAME), Buffer.from([0x40, 0x20, 0xe9, 0x0a]));
+    const cases: [string[], string][] = [
+      [['check', TRICK_NAME], `pneumark: ${escapedName}: is not UTF-8 text`],
+      [['show', TRICK_NAME], `pneumark: ${escapedName}: is not UTF-8 text`],
+      [['export', TRICK_NAME, '--format', 'csv'], `pneumark: ${escapedName}: is not UTF-8 text`],
+      [['fmt', '--check', TRICK_NAME], `pneumark: ${escapedName}: is not UTF-8 text`],
+      [['fmt', TRICK_NAME], `pneumark: ${escapedName}: is not UTF-8 text`],
+      [['check', `missing${RLO}.pneu`], 'pneumark: missing\\u{202E}.pneu: no such file or folder'],
+      [['fmt', '--check', `missing${RLO}.pneu`], 'pneumark: missing\\u{202E}.pneu: no such file or folder'],
+      [['check', '--format', `te${RLO}xt`, '-'], 'pneumark check: --format: must be one of text, json, sarif (got "te\\u{202E}xt")'],
+      [[`ch${RLO}eck`], 'pneumark: unknown command `ch\\u{202E}eck`'],
+    ];
+    for (const [args, expected] of cases) {
+      const out = memoryIo({ cwd: broken });
+      expect(await run(args, out), args.join(' ')).toBe(2);
+      expect(out.err(), args.join(' ')).toContain(expected);
+      expect(out.err() + out.out(), args.join(' ')).not.toMatch(BIDI);
+    }
+    // The text report names the unreadable note too.
+    const report = memoryIo({ cwd: broken });
+    await run(['check', TRICK_NAME], report);
+    expect(report.out()).toContain(`${escapedName}: cannot check: is not UTF-8 text`);
+  });
+
+  it('are kept as data in JSON, SARIF, CSV, JSON Lines and FHIR', async () => {
+    const dir = tempDir();
+    writeFileSync(join(dir, TRICK_NAME), REORDERING);
+    // What each format holds as written: the path (SARIF as a URI, the character percent-encoded;
+    // FHIR names no file), and the text a finding quotes or a label.
+    const formats: [string[], string[]][] = [
+      [['check', '--format', 'json'], [TRICK_NAME, `can${RLO}ula`]],
+      [['check', '--format', 'sarif'], ['ward%E2%80%AEuenp.x.pneu', `can${RLO}ula`]],
+      [['export', '--format', 'csv'], [TRICK_NAME, `bed ${RLO}4 \u2066left\u2069`]],
+      [['export', '--format', 'jsonl'], [TRICK_NAME, `bed ${RLO}4 \u2066left\u2069`]],
+      [['export', '--format', 'fhir'], [`bed ${RLO}4 \u2066left\u2069`]],
+    ];
+    for (const [args, kept] of formats) {
+      const out = memoryIo({ cwd: dir });
+      await run([...args, TRICK_NAME], out);
+      for (const text of kept) expect(out.out(), args.join(' ')).toContain(text);
+      expect(out.out(), args.join(' ')).not.toContain('\\u{202E}');
+    }
+    const json = memoryIo({ cwd: dir });
+    await run(['check', '--format', 'json', TRICK_NAME], json);
+    expect((JSON.parse(json.out()) as { files: { path: string }[] }).files[0]!.path).toBe(TRICK_NAME);
+  });
+});
+
+describe('C1 controls and DEL in file names', () => {
+  it('are written as \\xHH by check and fmt --check', async () => {
+    const dir = tempDir();
+    const name = 'a\u0085b\u009bc\u007fd.pneu';
+    writeFileSync(join(dir, name), '@ 08:00   x\nvitals spo2 104\n');
+    const checked = memoryIo({ cwd: dir });
+    await run(['check', '.'], checked);
+    expect(checked.out()).toContain('a\\x85b\\x9bc\\x7fd.pneu:2:13  error');
+    const listed = memoryIo({ cwd: dir });
+    await run(['fmt', '--check', '.'], listed);
+    expect(listed.out()).toBe('a\\x85b\\x9bc\\x7fd.pneu\n');
   });
 });
 

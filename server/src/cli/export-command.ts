@@ -87,7 +87,7 @@ export async function runExport(args: readonly string[], io: Io): Promise<number
   });
   if (opts.format === 'fhir') output.write('\n]\n');
   const badConfig = reportConfigProblems(configs, io);
-  for (const p of [...problems, ...reports.filter((r) => r.problem)]) io.stderr.write(`pneumark: ${visible(p.path)}: ${p.problem}\n`);
+  for (const p of [...problems, ...reports.filter((r) => r.problem)]) io.stderr.write(`pneumark: ${visible(p.path)}: ${visible(p.problem ?? '')}\n`);
   if (badConfig || problems.length > 0 || reports.some((r) => r.problem)) return EXIT.usage;
   return reports.some((r) => r.findings.some((f) => f.severity === 'error')) ? EXIT.findings : EXIT.ok;
 }

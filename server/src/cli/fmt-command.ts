@@ -2,7 +2,9 @@
  * `pneumark fmt`: the editor's formatter over files. `--check` lists notes whose layout would
  * change; `--write` rewrites them atomically (a note reached through a symbolic link where the link
  * leads) and never over a note that has syntax errors (unless --force), that is not UTF-8 text, or
- * that changed on disk while being formatted. A byte-order mark is kept, when printing too.
+ * that changed on disk while being formatted. A byte-order mark is kept, when printing too. Paths in
+ * its messages have their control characters made visible (see `visible`); a note printed formatted
+ * is the note itself, written as it is.
  */
 import { isAbsolute, join } from 'node:path';
 import { z } from 'zod';
@@ -11,6 +13,7 @@ import { formatNote } from '../core/service/format';
 import { readSnapshot, writeIfUnchanged, type BeforeRename } from '../node/atomic-write';
 import { listInputs, looksBinary, MAX_NOTE_BYTES, readNote, utf8Problem } from './inputs';
 import { EXIT, HELP, parse, UsageError, validate, type Io } from './args';
+import { visible } from './visible';
 
 const fmtOptions = z.object({
   check: z.boolean().default(false),
@@ -28,17 +31,17 @@ export function runFmt(args: readonly string[], io: Io): number {
   const opts = validate(fmtOptions, { check: values.check, write: values.write, force: values.force, exclude: values.exclude });
   if (positionals.length === 0) throw new UsageError('fmt needs at least one file, folder, pattern or - (stdin)');
   const { files, problems } = listInputs(positionals, io.cwd, opts.exclude);
-  for (const p of problems) io.stderr.write(`pneumark: ${p.path}: ${p.problem}\n`);
+  for (const p of problems) io.stderr.write(`pneumark: ${visible(p.path)}: ${p.problem}\n`);
 
   if (!opts.check && !opts.write) {
     if (files.length > 1) {
-      throw new UsageError(`without --check or --write, fmt prints one note, and ${positionals.length === 1 ? `${positionals[0]} holds` : 'these inputs hold'} ${files.length}; add --check or --write to work on several`);
+      throw new UsageError(`without --check or --write, fmt prints one note, and ${positionals.length === 1 ? `${visible(positionals[0]!)} holds` : 'these inputs hold'} ${files.length}; add --check or --write to work on several`);
     }
     // A missing, unreadable or empty input has had its line above; there is nothing to print.
     if (problems.length > 0 || files.length === 0) return EXIT.usage;
     const note = readNote(files[0]!, io.cwd, io.stdin, { keepBom: true });
     if (note.text === null) {
-      io.stderr.write(`pneumark: ${note.path}: ${note.problem}\n`);
+      io.stderr.write(`pneumark: ${visible(note.path)}: ${note.problem}\n`);
       return EXIT.usage;
     }
     const bom = note.text.charCodeAt(0) === 0xfeff ? '\uFEFF' : '';
@@ -55,23 +58,24 @@ export function runFmt(args: readonly string[], io: Io): number {
       continue;
     }
     const abs = isAbsolute(file) ? file : join(io.cwd, file);
+    const shown = visible(file);
     let snapshot;
     try {
       snapshot = readSnapshot(abs);
     } catch (error) {
-      io.stderr.write(`pneumark: ${file}: cannot be read (${(error as NodeJS.ErrnoException).code ?? 'error'})\n`);
+      io.stderr.write(`pneumark: ${shown}: cannot be read (${(error as NodeJS.ErrnoException).code ?? 'error'})\n`);
       failed = true;
       continue;
     }
     if (snapshot.size > MAX_NOTE_BYTES || looksBinary(snapshot.bytes)) {
-      io.stderr.write(`pneumark: ${file}: ${snapshot.size > MAX_NOTE_BYTES ? 'too large to format' : 'looks like a binary file, not a note'}\n`);
+      io.stderr.write(`pneumark: ${shown}: ${snapshot.size > MAX_NOTE_BYTES ? 'too large to format' : 'looks like a binary file, not a note'}\n`);
       failed = true;
       continue;
     }
     // Decoding other bytes would turn each into U+FFFD, and writing that back would damage the note.
     const notUtf8 = utf8Problem(snapshot.bytes);
     if (notUtf8 !== null) {
-      io.stderr.write(`pneumark: ${file}: ${notUtf8}; not ${opts.write ? 'rewritten' : 'checked'} (convert it to UTF-8 first)\n`);
+      io.stderr.write(`pneumark: ${shown}: ${notUtf8}; not ${opts.write ? 'rewritten' : 'checked'} (convert it to UTF-8 first)\n`);
       failed = true;
       continue;
     }
@@ -80,12 +84,12 @@ export function runFmt(args: readonly string[], io: Io): number {
     if (formatted === text) continue;
     changed++;
     if (opts.check) {
-      io.stdout.write(`${file}\n`);
+      io.stdout.write(`${shown}\n`);
       continue;
     }
     const syntaxErrors = checkNote(text).findings.filter((f) => f.severity === 'error' && /^PN1/.test(f.code));
     if (syntaxErrors.length > 0 && !opts.force) {
-      io.stderr.write(`pneumark: ${file}: not rewritten: ${syntaxErrors.length} syntax error(s), first at line ${syntaxErrors[0]!.range.start.line + 1}; fix them or use --force\n`);
+      io.stderr.write(`pneumark: ${shown}: not rewritten: ${syntaxErrors.length} syntax error(s), first at line ${syntaxErrors[0]!.range.start.line + 1}; fix them or use --force\n`);
       failed = true;
       continue;
     }
@@ -93,13 +97,13 @@ export function runFmt(args: readonly string[], io: Io): number {
     try {
       const outcome = writeIfUnchanged(abs, snapshot, bom + formatted, fmtHooks.beforeRename);
       if (outcome === 'changed-on-disk') {
-        io.stderr.write(`pneumark: ${file}: changed on disk while being formatted; left as it is\n`);
+        io.stderr.write(`pneumark: ${shown}: changed on disk while being formatted; left as it is\n`);
         failed = true;
       } else {
-        io.stdout.write(`formatted ${file}\n`);
+        io.stdout.write(`formatted ${shown}\n`);
       }
     } catch (error) {
-      io.stderr.write(`pneumark: ${file}: could not be written (${error instanceof Error ? error.message : String(error)}); the original is intact\n`);
+      io.stderr.write(`pneumark: ${shown}: could not be written (${visible(error instanceof Error ? error.message : String(error))}); the original is intact\n`);
       failed = true;
     }
   }

@@ -44,12 +44,13 @@ export async function run(argv: readonly string[], io: Io): Promise<number> {
         io.stderr.write(`${HELP.main}\n`);
         return EXIT.usage;
       default:
-        io.stderr.write(`pneumark: unknown command \`${command}\`; run \`pneumark --help\`\n`);
+        io.stderr.write(`pneumark: unknown command \`${visible(command)}\`; run \`pneumark --help\`\n`);
         return EXIT.usage;
     }
   } catch (error) {
     if (error instanceof UsageError) {
-      io.stderr.write(`pneumark ${command ?? ''}: ${error.message}\n`);
+      // The message may quote what was typed (a path, an option's value).
+      io.stderr.write(`pneumark ${command ?? ''}: ${visible(error.message)}\n`);
       return EXIT.usage;
     }
     throw error;
@@ -62,7 +63,7 @@ function show(args: readonly string[], io: Io): number {
   if (positionals.length !== 1) throw new UsageError('show takes exactly one file (use `check` for several)');
   const note = readNote(positionals[0]!, io.cwd, io.stdin);
   if (note.text === null) {
-    io.stderr.write(`pneumark: ${visible(note.path)}: ${note.problem}\n`);
+    io.stderr.write(`pneumark: ${visible(note.path)}: ${visible(note.problem ?? '')}\n`);
     return EXIT.usage;
   }
   const worker = new NoteWorker(io.cwd, {});
@@ -112,7 +113,7 @@ async function check(args: readonly string[], io: Io): Promise<number> {
     await writeCheckText(outcomes, p, opts.quiet, output);
   }
   const badConfig = reportConfigProblems(configs, io);
-  for (const o of outcomes) if (o.problem) io.stderr.write(`pneumark: ${visible(o.path)}: ${o.problem}\n`);
+  for (const o of outcomes) if (o.problem) io.stderr.write(`pneumark: ${visible(o.path)}: ${visible(o.problem)}\n`);
   if (badConfig || outcomes.some((o) => o.problem)) return EXIT.usage;
   if (outcomes.some((o) => o.findings.some((f) => f.severity === 'error'))) return EXIT.findings;
   const warnings = outcomes.reduce((n, o) => n + o.findings.filter((f) => f.severity === 'warning').length, 0);
