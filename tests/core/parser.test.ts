@@ -199,6 +199,13 @@ describe('section lines', () => {
     expect(node.comment?.text).toBe('# a comment');
   });
 
+  it('keeps a comma that ends note prose (it is prose, not a separator between items)', () => {
+    expect(section('note hello, world,').prose?.text).toBe('hello, world,');
+    expect(section('note waiting for review,   # asked at 08:00').prose?.text).toBe('waiting for review,');
+    const text = 'note  a, b,';
+    expect(at(text, section(text).prose?.span)).toBe('a, b,');
+  });
+
   it('keeps an unknown unit as the unit, for the unit check to name', () => {
     const text = 'abg po2 71 mmhgg, pco2 40';
     expect(section(text).items.map((i) => summary(text, i))).toEqual(['po2 | 71 | mmhgg', 'pco2 | 40 | <none>']);
@@ -274,6 +281,15 @@ describe('timepoints', () => {
     const node = timepoint('@ day 2 07:40  arrival on the ward');
     expect(node.time).toMatchObject({ kind: 'clock', day: 2, minutes: 460, text: 'day 2 07:40' });
     expect(node.label?.text).toBe('arrival on the ward');
+  });
+
+  it('keeps a comma that ends a label, and the label runs to the comment', () => {
+    const text = '@ day 1 08:00 arrival, then ward,  # ok';
+    const node = timepoint(text);
+    expect(node.label?.text).toBe('arrival, then ward,');
+    expect(at(text, node.label?.span)).toBe('arrival, then ward,');
+    expect(timepoint('@ 09:00 bed 4, side room,').label?.text).toBe('bed 4, side room,');
+    expect(timepoint('@ 09:00,').label).toBeNull();
   });
 
   it('reads `@ HH:MM`, `@HH:MM`, `@ day N` and offsets', () => {

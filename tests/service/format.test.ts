@@ -48,6 +48,13 @@ describe('canonical layout', () => {
     expect(formatNote('abg  ph 7,35, pco2 41')).toBe('abg  ph 7,35, pco2 41'); // decimal comma: a syntax issue, the line is left alone
   });
 
+  it('keeps a comma at the end of prose or a label', () => {
+    expect(formatNote('note awaiting review, then')).toBe('note      awaiting review, then');
+    expect(formatNote('note awaiting review, then,')).toBe('note      awaiting review, then,');
+    expect(formatNote('@ day 1 08:00 arrival, then ward,')).toBe('@ day 1 08:00  arrival, then ward,');
+    expect(formatNote('@ 09:00 bed 4,  # side room')).toBe('@ 09:00  bed 4,  # side room');
+  });
+
   it('keeps a comment in its column when there is room, else two spaces after the content', () => {
     const aligned = `${'vitals hr 118'.padEnd(30)}# settled`;
     expect(formatNote(aligned)).toBe(`${'vitals    hr 118'.padEnd(30)}# settled`);

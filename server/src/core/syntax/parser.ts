@@ -7,7 +7,7 @@ import { fieldFor, FIELDS, type FieldDef } from '../fields/registry';
 import { SECTIONS, sectionByName, type SectionId } from '../fields/sections';
 import { isKnownUnitSpelling, UNITS } from '../fields/units';
 import { closest } from '../util/suggest';
-import { Chunk, isDigit, leadingNumber, releaseWords, scanNumber, SCANNED, wordsOf, Word } from './lexer';
+import { Chunk, isBlank, isDigit, leadingNumber, releaseWords, scanNumber, SCANNED, wordsOf, Word } from './lexer';
 import type {
   ItemNode,
   LineFix,
@@ -151,8 +151,7 @@ function parseLineUnsafe(text: string, line: number): LineNode {
   }
   if (section.id === 'note') {
     const proseStart = chunks[1]?.start;
-    const proseEnd = chunks[chunks.length - 1]?.end ?? first.end;
-    const prose: Token | null = proseStart === undefined ? null : new CutToken(body, proseStart, proseEnd);
+    const prose: Token | null = proseStart === undefined ? null : new CutToken(body, proseStart, proseEnd(body));
     return { kind: 'section', line, text, comment, section: section.id, sectionToken, items: NONE, prose, issues: NONE };
   }
   const issues: SyntaxIssue[] = [];
@@ -246,11 +245,21 @@ function parseTimepoint(body: string, chunks: Word[], line: number, text: string
       used = 0;
     }
   }
-  const labelChunks = rest.slice(used);
-  const l0 = labelChunks[0];
-  const lN = labelChunks[labelChunks.length - 1];
-  const label: Token | null = l0 && lN ? token(body.slice(l0.start, lN.end), l0.start, lN.end) : null;
+  const l0 = rest[used];
+  const labelEnd = l0 ? proseEnd(body) : 0;
+  const label: Token | null = l0 ? token(body.slice(l0.start, labelEnd), l0.start, labelEnd) : null;
   return { kind: 'timepoint', line, text, comment, marker, time, label, issues: issues.length === 0 ? NONE : issues };
+}
+
+/**
+ * Where the prose of a line (a note line's text, a timepoint's label) ends: after its last
+ * character that is not a blank. A comma there is prose, not a separator (`arrival, then ward,`
+ * keeps its last comma), so the end is not the end of the last word.
+ */
+function proseEnd(body: string): number {
+  let end = body.length;
+  while (end > 0 && isBlank(body.charCodeAt(end - 1))) end--;
+  return end;
 }
 
 /**
