@@ -1,5 +1,6 @@
 // Which notes a command reads: paths that look like patterns, exclusions outside the working
-// folder, inputs that hold no note, extensions in any case, and notes that are not UTF-8.
+// folder, `.pneuignore` files in the folders scanned, inputs that hold no note, extensions in any
+// case, and notes that are not UTF-8.
 import { mkdirSync, mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -153,6 +154,112 @@ describe('exclusions for notes outside the working folder', () => {
     const out = io(dir);
     await run(['check', 'ward', '--exclude', '/ward/old/'], out);
     expect(reported(out.out())).toEqual(['ward/one.pneu']);
+  });
+});
+
+/** Writes `files` (paths with forward slashes, relative to `dir`), making their folders. */
+function lay(dir: string, files: Readonly<Record<string, string>>): void {
+  for (const [path, text] of Object.entries(files)) {
+    mkdirSync(join(dir, path, '..'), { recursive: true });
+    writeFileSync(join(dir, path), text);
+  }
+}
+
+describe('.pneuignore files in the folders scanned', () => {
+  it('apply below their own folder only, matched relative to it; siblings are unaffected', async () => {
+    const dir = tempDir();
+    lay(dir, {
+      'data/ward-a/.pneuignore': 'draft.pneu\n/old/\n',
+      'data/ward-a/one.pneu': alarming,
+      'data/ward-a/draft.pneu': alarming,
+      'data/ward-a/bed-2/draft.pneu': alarming,
+      'data/ward-a/old/two.pneu': alarming,
+      'data/ward-a/bed-2/old/three.pneu': alarming,
+      'data/ward-b/draft.pneu': alarming,
+      'data/ward-b/old/two.pneu': alarming,
+      'data/draft.pneu': alarming,
+    });
+    const expected = ['data/draft.pneu', 'data/ward-a/bed-2/old/three.pneu', 'data/ward-a/one.pneu', 'data/ward-b/draft.pneu', 'data/ward-b/old/two.pneu'];
+    // The same notes whichever folder is named, and in the same order.
+    const whole = io(dir);
+    await run(['check', 'data'], whole);
+    expect(reported(whole.out())).toEqual(expected);
+    const ward = io(dir);
+    await run(['check', 'data/ward-a'], ward);
+    expect(reported(ward.out())).toEqual(expected.filter((p) => p.startsWith('data/ward-a/')));
+    const pattern = io(dir);
+    await run(['check', 'data/**/*.pneu'], pattern);
+    expect(reported(pattern.out())).toEqual(expected);
+    // A file named on the command line is left out as the working folder's .pneuignore leaves it out.
+    const named = io(dir);
+    expect(await run(['check', 'data/ward-a/draft.pneu'], named)).toBe(2);
+    expect(named.err()).toBe('pneumark: data/ward-a/draft.pneu: excluded by .pneuignore; no note left to read\n');
+  });
+
+  it('take back with a negation what a file above left out, unless its folder is left out', async () => {
+    const dir = tempDir();
+    lay(dir, {
+      '.pneuignore': '*.pneu\nshelved/\n',
+      'top.pneu': alarming,
+      'ward/.pneuignore': '!keep.pneu\n!/sub/\n',
+      'ward/keep.pneu': alarming,
+      'ward/other.pneu': alarming,
+      'ward/bed/keep.pneu': alarming,
+      'ward/shelved/.pneuignore': '!*.pneu\n',
+      'ward/shelved/keep.pneu': alarming,
+      'ward/deeper/.pneuignore': 'keep.pneu\n!other.pneu\n',
+      'ward/deeper/keep.pneu': alarming,
+      'ward/deeper/other.pneu': alarming,
+    });
+    const out = io(dir);
+    await run(['check', '.'], out);
+    expect(reported(out.out())).toEqual(['ward/bed/keep.pneu', 'ward/deeper/other.pneu', 'ward/keep.pneu']);
+  });
+
+  it('apply in the folder named when run from another working folder, with the working folder’s own', async () => {
+    const top = tempDir();
+    lay(top, {
+      'work/.pneuignore': 'old.pneu\n',
+      'work/mine.pneu': alarming,
+      'notes/.pneuignore': 'draft.pneu\n',
+      'notes/one.pneu': alarming,
+      'notes/draft.pneu': alarming,
+      'notes/old.pneu': alarming,
+      'notes/ward/draft.pneu': alarming,
+      'notes/ward/two.pneu': alarming,
+      'other/draft.pneu': alarming,
+    });
+    const cwd = join(top, 'work');
+    const named = io(cwd);
+    await run(['check', '../notes', '../other'], named);
+    expect(reported(named.out())).toEqual(['../notes/one.pneu', '../notes/ward/two.pneu', '../other/draft.pneu']);
+    const absolute = io(join(top, 'other'));
+    await run(['check', join(top, 'notes')], absolute);
+    expect(reported(absolute.out())).toEqual(['../notes/old.pneu', '../notes/one.pneu', '../notes/ward/two.pneu']);
+    // From above the notes, the folder's file applies on the way down.
+    const above = io(top);
+    await run(['check', 'notes/ward', 'work'], above);
+    expect(reported(above.out())).toEqual(['notes/ward/two.pneu', 'work/mine.pneu']);
+    // Named from a folder that holds the working folder, the notes beside it get its files too.
+    const parent = io(cwd);
+    await run(['check', '..'], parent);
+    expect(reported(parent.out())).toEqual(['../notes/one.pneu', '../notes/ward/two.pneu', '../other/draft.pneu', '../work/mine.pneu']);
+  });
+
+  it('are read in a folder that holds no note (only folders below it do), and --exclude still applies', async () => {
+    const dir = tempDir();
+    lay(dir, {
+      'set/.pneuignore': 'b/\n',
+      'set/a/one.pneu': alarming,
+      'set/a/two.pneu': alarming,
+      'set/b/three.pneu': alarming,
+    });
+    const out = io(dir);
+    await run(['check', 'set', '--exclude', 'two.pneu'], out);
+    expect(reported(out.out())).toEqual(['set/a/one.pneu']);
+    const exported = io(dir);
+    expect(await run(['export', 'set/b', '--format', 'csv'], exported)).toBe(2);
+    expect(exported.err()).toBe('pneumark: set/b: no note left to read: the .pneu note in this folder is excluded by .pneuignore\n');
   });
 });
 

@@ -1,17 +1,20 @@
 /**
  * Finding and reading the notes a command was given: files and folders (every note below them
  * whose name ends in `.pneu`, in any case, skipping hidden folders and files and `node_modules`),
- * glob patterns, and `-` for standard input; minus what `--exclude` patterns and a `.pneuignore` file
- * in the working folder exclude (gitignore syntax, matched relative to the working folder, or for a
- * note outside it relative to the folder named on the command line). A path that exists is always
- * taken as a path, even when it looks like a pattern (`a[1].pneu`, `notes (copy)`). The list is
- * sorted, so output order never depends on the file system or on parallelism. Unreadable, binary,
- * non-UTF-8 or huge files give a one-line problem and the run goes on; inputs that hold no note at
- * all give a one-line problem too, so a run pointed at the wrong folder does not pass.
+ * glob patterns, and `-` for standard input; minus what `--exclude` patterns and `.pneuignore` files
+ * exclude (gitignore syntax: `--exclude` matched relative to the working folder, or for a note
+ * outside it relative to the folder named on the command line; each `.pneuignore`, in the working
+ * folder or in a folder on the way down to a note, relative to its own folder, as `.gitignore`
+ * files are). A file named on the command line is left out too when they exclude it. A path that
+ * exists is always taken as a path, even when it looks like a pattern (`a[1].pneu`, `notes
+ * (copy)`). The list is sorted, so output order never depends on the file system or on
+ * parallelism. Unreadable, binary, non-UTF-8 or huge files give a one-line problem and the run goes
+ * on; inputs that hold no note at all give a one-line problem too, so a run pointed at the wrong
+ * folder does not pass.
  */
-import { closeSync, existsSync, fstatSync, openSync, readFileSync, readSync, realpathSync, statSync, type Stats } from 'node:fs';
+import { closeSync, fstatSync, openSync, readFileSync, readSync, realpathSync, statSync, type Stats } from 'node:fs';
 import { isUtf8 } from 'node:buffer';
-import { dirname, isAbsolute, join, normalize, relative, resolve, sep } from 'node:path';
+import { basename, dirname, isAbsolute, join, normalize, relative, resolve, sep } from 'node:path';
 import ignore, { type Ignore } from 'ignore';
 import { globSync, isDynamicPattern } from 'tinyglobby';
 
@@ -164,33 +167,139 @@ function comparePaths(a: string, b: string): number {
 }
 
 /**
- * Which exclusion (if any) leaves a note out. Patterns (gitignore syntax) are matched against the
- * note's path relative to the working folder, where the `.pneuignore` and the command line belong;
- * a note outside the working folder is matched by its path relative to `root`, the folder named on
- * the command line that brought it in (for a file, its folder; for a pattern, its fixed part), so
- * `check ../notes --exclude old.pneu` leaves out `../notes/old.pneu`.
+ * Which exclusion (if any) leaves a note out. `--exclude` patterns (gitignore syntax) are matched
+ * against the note's path relative to the working folder; a note outside the working folder is
+ * matched by its path relative to `root`, the folder named on the command line that brought it in
+ * (for a file, its folder; for a pattern, its fixed part), so `check ../notes --exclude old.pneu`
+ * leaves out `../notes/old.pneu`. `.pneuignore` files are those of `IgnoreFiles`.
  */
 function exclusions(cwd: string, exclude: readonly string[]): (path: string, root: string) => ExclusionSource | null {
-  const fromFile: Ignore = ignore();
-  const file = join(cwd, IGNORE_FILE);
-  if (existsSync(file)) {
-    try {
-      fromFile.add(readFileSync(file, 'utf8'));
-    } catch {
-      // an unreadable ignore file excludes nothing
-    }
-  }
+  const ignoreFiles = new IgnoreFiles(cwd);
   const fromArgs: Ignore = ignore().add([...exclude]);
   return (path: string, root: string) => {
     const abs = resolve(cwd, path);
     let rel = relative(cwd, abs);
-    if (outside(rel)) rel = relative(root, abs);
+    const inCwd = !outside(rel);
+    if (!inCwd) rel = relative(root, abs);
     if (rel === '' || outside(rel)) return null;
-    const posix = toPosix(rel);
-    if (fromFile.ignores(posix)) return IGNORE_FILE;
-    if (fromArgs.ignores(posix)) return '--exclude';
+    if (ignoreFiles.leaveOut(abs, inCwd, root)) return IGNORE_FILE;
+    if (fromArgs.ignores(toPosix(rel))) return '--exclude';
     return null;
   };
+}
+
+/** A `.pneuignore` file's patterns and where they are matched from. */
+interface IgnoreLevel {
+  readonly patterns: Ignore;
+  /** Its folder relative to the top (see `IgnoreFiles`), with a slash after it; empty for the top. */
+  readonly prefix: string;
+}
+
+/** What the `.pneuignore` files from the top down to a folder say about what lies in it. */
+interface FolderState {
+  /** The folder relative to the top, with a slash after it; empty for the top. */
+  readonly prefix: string;
+  /** The files that apply in the folder, outermost first (its own last). */
+  readonly levels: readonly IgnoreLevel[];
+  /** Whether the folder itself (or a folder between the top and it) is left out. */
+  readonly left: boolean;
+}
+
+/**
+ * The `.pneuignore` files, read as git reads `.gitignore` files: one in each folder from the top
+ * down to the note's folder, where the top is the working folder for a note inside it (or the
+ * folder named on the command line, when that holds the working folder) and otherwise the folder
+ * named on the command line. Each file's patterns are matched relative to its own folder and apply
+ * only to what lies below it; a deeper file decides over a shallower one (`!keep.pneu` takes back
+ * a `*.pneu` from above), and nothing below a folder that is left out can be taken back. For a note
+ * outside the working folder, the working folder's file applies too, first, matched relative to
+ * the folder named on the command line. Each folder's file is read once per run and each folder
+ * worked out once, whatever the number of notes in it: a scan of thousands of notes reads a file
+ * per folder, not per note.
+ */
+class IgnoreFiles {
+  private readonly read = new Map<string, Ignore | null>();
+  private readonly folders = new Map<string, FolderState>();
+  /** The state of a note's folder by how the note was reached (the top and the outer file follow from that). */
+  private readonly noteFolders = new Map<string, FolderState>();
+
+  constructor(private readonly cwd: string) {}
+
+  /** Whether the `.pneuignore` files leave out the note at `abs` (inside the working folder or not; brought in by `root`). */
+  leaveOut(abs: string, inCwd: boolean, root: string): boolean {
+    const folder = dirname(abs);
+    const key = `${inCwd ? '' : '>'}${root}\0${folder}`;
+    let state = this.noteFolders.get(key);
+    if (state === undefined) {
+      state = this.folder(folder, this.top(folder, inCwd, root), inCwd ? null : root);
+      this.noteFolders.set(key, state);
+    }
+    if (state.left) return true;
+    return leftOut(state.levels, `${state.prefix}${toPosix(basename(abs))}`);
+  }
+
+  /** The highest folder whose `.pneuignore` applies to notes in `folder`. */
+  private top(folder: string, inCwd: boolean, root: string): string {
+    const rootHolds = !outside(relative(root, folder));
+    if (!inCwd) return rootHolds ? root : folder;
+    return rootHolds && !outside(relative(root, this.cwd)) ? root : this.cwd;
+  }
+
+  /** `folder`'s state below `top`; `outerBase`: where the working folder's file is matched from for notes outside it. */
+  private folder(folder: string, top: string, outerBase: string | null): FolderState {
+    const key = `${outerBase ?? ''}\0${top}\0${folder}`;
+    const known = this.folders.get(key);
+    if (known !== undefined) return known;
+    let state: FolderState;
+    const rel = relative(top, folder);
+    if (rel === '' || outside(rel)) {
+      const outer = outerBase === null ? null : this.patternsIn(this.cwd);
+      const own = this.patternsIn(folder);
+      const levels: IgnoreLevel[] = [];
+      if (outer) levels.push({ patterns: outer, prefix: '' });
+      if (own) levels.push({ patterns: own, prefix: '' });
+      state = { prefix: '', levels, left: false };
+    } else {
+      const parent = this.folder(dirname(folder), top, outerBase);
+      const prefix = `${toPosix(rel)}/`;
+      const own = this.patternsIn(folder);
+      state = {
+        prefix,
+        levels: own ? [...parent.levels, { patterns: own, prefix }] : parent.levels,
+        left: parent.left || leftOut(parent.levels, prefix),
+      };
+    }
+    this.folders.set(key, state);
+    return state;
+  }
+
+  /** The patterns of the folder's `.pneuignore`; null when it has none (or it cannot be read: it then excludes nothing). */
+  private patternsIn(folder: string): Ignore | null {
+    let patterns = this.read.get(folder);
+    if (patterns === undefined) {
+      try {
+        patterns = ignore().add(readFileSync(join(folder, IGNORE_FILE), 'utf8'));
+      } catch {
+        patterns = null;
+      }
+      this.read.set(folder, patterns);
+    }
+    return patterns;
+  }
+}
+
+/**
+ * Whether `levels` (outermost first, a deeper one deciding over a shallower) leave out `path`, a
+ * path relative to the top (a folder's with a slash after it).
+ */
+function leftOut(levels: readonly IgnoreLevel[], path: string): boolean {
+  let left = false;
+  for (const { patterns, prefix } of levels) {
+    const verdict = patterns.test(path.slice(prefix.length));
+    if (verdict.ignored) left = true;
+    else if (verdict.unignored) left = false;
+  }
+  return left;
 }
 
 /**
