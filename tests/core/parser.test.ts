@@ -132,6 +132,11 @@ describe('section lines', () => {
     expect(section(two).issues.map((i) => [i.check, at(two, i.span), i.message])).toEqual([
       ['missing-value', 'hr 80/90', '`hr` takes one number; `80/90` is two numbers, so it is not read.'],
     ]);
+    const three = 'vitals bp 120/80/60 mmHg, hr 80';
+    expect(section(three).issues.map((i) => [i.check, at(three, i.span), i.message])).toEqual([
+      ['missing-value', 'bp 120/80/60', '`bp` takes two numbers joined by a slash (`bp 120/80`); `120/80/60` is three, so it is not read.'],
+    ]);
+    expect(section('vitals bp 120 / 80 / 60').issues.map((i) => i.check)).toEqual(['missing-value']);
   });
 
   it('gives a gas its shape: `abg 7.28/56` is a shorthand, not a key with two numbers', () => {

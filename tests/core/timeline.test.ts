@@ -30,6 +30,13 @@ describe('timepoints and time', () => {
     expect(codes('@ 23:30\n@ 00:15')).toEqual([]);
   });
 
+  it('reads no blood pressure from three numbers (`bp 120/80/60`), where a pair is two', () => {
+    const t = timeline('@ day 1 08:00\nvitals bp 120/80/60, hr 80');
+    expect(value(t.timepoints[0], 'bp')).toBeUndefined();
+    expect(value(t.timepoints[0], 'hr')).toBe(80);
+    expect(codes('@ day 1 08:00\nvitals bp 120/80/60, hr 80')).toEqual(['PN102']);
+  });
+
   it('makes an implicit first timepoint for values before any `@`', () => {
     const t = timeline('patient age 60 y\nvitals hr 80\n@ 08:00\nvitals hr 90');
     expect(t.timepoints.map((tp) => tp.label)).toEqual(['start', '08:00']);

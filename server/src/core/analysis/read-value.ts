@@ -104,6 +104,7 @@ export function readItem(item: ItemNode, section: SectionId, line: number, ctx: 
   if (!canonical) return null;
   // A pair's numbers are built when asked for: read them once.
   const pairParts = kind === 'pair' ? (item.value as PairValue).parts : null;
+  if (pairParts !== null && pairParts.length !== 2) return null; // `bp 120/80/60`: reported by the syntax checks
   const written = kind === 'number' ? item.number! : null;
   const first = written ?? pairParts?.[0]?.value ?? 0;
 

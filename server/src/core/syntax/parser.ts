@@ -691,6 +691,13 @@ function numberItem(keyText: string | null, keyName: string, implied: ItemNode['
 
 const SHORTHAND_KEYS = ['ph', 'pco2', 'po2', 'hco3'] as const;
 
+const COUNT_WORDS = ['none', 'one', 'two', 'three', 'four'];
+
+/** How many numbers a slash group has, in words (`three`). */
+function countWord(count: number): string {
+  return COUNT_WORDS[count] ?? String(count);
+}
+
 function isKey(section: SectionId, text: string): boolean {
   return fieldFor(section, text) !== undefined;
 }
@@ -825,7 +832,10 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
           if (unit && unit !== glued) i++;
           if (field?.kind === 'number') {
             // `hr 80/90`: numbers joined by a slash where the key takes one; nothing would be read from it.
-            issues.push({ check: 'missing-value', span: { start: key.start, end: group.end }, message: `\`${key.text}\` takes one number; \`${group.text}\` is ${group.count === 2 ? 'two' : group.count} numbers, so it is not read.`, fixes: [] });
+            issues.push({ check: 'missing-value', span: { start: key.start, end: group.end }, message: `\`${key.text}\` takes one number; \`${group.text}\` is ${countWord(group.count)} numbers, so it is not read.`, fixes: [] });
+          } else if (field?.kind === 'pair' && group.count !== 2) {
+            // `bp 120/80/60`: a pair is two numbers; a third would otherwise be dropped in silence.
+            issues.push({ check: 'missing-value', span: { start: key.start, end: group.end }, message: `\`${key.text}\` takes two numbers joined by a slash (\`${key.text} 120/80\`); \`${group.text}\` is ${countWord(group.count)}, so it is not read.`, fixes: [] });
           }
         } else if (length > 0) {
           const number = SCANNED.value;
