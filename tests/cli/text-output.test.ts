@@ -227,6 +227,27 @@ describe('show, for a value whose unit is in doubt', () => {
   });
 });
 
+describe('show, in a kPa note', () => {
+  it('gives header gas pressures in kPa first, as at a timepoint', async () => {
+    // 84 kPa = 630 mmHg (1 kPa = 7.50062 mmHg, definition of the units).
+    const kpa = io('units gas kPa\nplace barometric 84\n@ day 1 08:00\nabg paco2 5.3\n');
+    await run(['show', '-'], kpa);
+    expect(kpa.out()).toContain('PB 84.0 kPa (630 mmHg)');
+    expect(kpa.out()).toContain('PaCO2 5.3 kPa (40 mmHg)');
+    const mmhg = io('place barometric 630\n@ day 1 08:00\nabg paco2 40\n');
+    await run(['show', '-'], mmhg);
+    expect(mmhg.out()).toContain('PB 630 mmHg (84.0 kPa)');
+  });
+
+  it('gives header values in the header\'s unit when the lines after them, before any `@`, switch to kPa', async () => {
+    // Line 1 is the header; the lines after it make the first timepoint, whose gas unit is kPa.
+    const out = io('place barometric 630\nvitals hr 80\nunits gas kPa\nabg paco2 5.3\n');
+    await run(['show', '-'], out);
+    expect(out.out()).toContain('PB 630 mmHg (84.0 kPa)');
+    expect(out.out()).toContain('PaCO2 5.3 kPa (40 mmHg)');
+  });
+});
+
 describe('--quiet', () => {
   it('lists error findings only in JSON too, and the summary still counts every finding', async () => {
     const quiet = io();

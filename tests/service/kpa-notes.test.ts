@@ -9,7 +9,7 @@ import { describe, expect, it } from 'vitest';
 import { checkNote, type NoteResult } from '../../server/src/core/check-note';
 import { derivedHover, HINT_CATEGORIES, hoverAt, inlayHints, type HintCategory } from '../../server/src/core/service';
 import { timepointSummary } from '../../server/src/core/trends';
-import { note } from './cursor';
+import { note, noteAt } from './cursor';
 
 const ALL = { categories: new Set<HintCategory>(HINT_CATEGORIES) };
 const EVERY_LINE = { start: 0, end: 10_000 };
@@ -139,6 +139,46 @@ describe('hovers in a kPa note', () => {
     // PiO2 0.28 × (760 − 47) = 199.6 mmHg = 26.6 kPa (alveolar gas equation; UCUM for the kPa).
     expect(ucumKpa(0.28 * (760 - 47))).toBeCloseTo(26.6, 1);
     expect(md).toContain('- Inspired PO2 (PiO2): **26.6 kPa (200 mmHg)**');
+  });
+});
+
+describe('header values in a kPa note', () => {
+  // 84 kPa = 630.05 mmHg (definition of the units; UCUM agrees).
+  it('hover in kPa first, by the header\'s gas unit or the gasUnit setting, as timepoint values do', () => {
+    expect(ucumMmhg(84)).toBeCloseTo(630.05, 1);
+    const byLine = noteAt(note('units gas kPa', 'place barometric 8|4', '@ 08:00', 'abg 7.40/5.3/11/24'));
+    expect(hoverAt(byLine.result, byLine.position)?.markdown).toContain('Value: **84.0 kPa** = 630 mmHg');
+    const bySetting = noteAt(note('place barometric 8|4', '@ 08:00', 'abg 7.40/5.3/11/24'), { gasUnit: 'kPa' });
+    expect(hoverAt(bySetting.result, bySetting.position)?.markdown).toContain('Value: **84.0 kPa** = 630 mmHg');
+  });
+
+  it('stay in mmHg first in an mmHg note, and when only a timepoint says `units gas kPa`', () => {
+    const mmhg = noteAt(note('place barometric 63|0', '@ 08:00', 'abg 7.40/40/83/24'));
+    expect(hoverAt(mmhg.result, mmhg.position)?.markdown).toContain('Value: **630 mmHg** = 84.0 kPa');
+    // The header is read before the timepoint's `units gas`: its 630 is mmHg, and shown so.
+    const later = noteAt(note('place barometric 63|0', '@ 08:00', 'units gas kPa', 'abg 7.40/5.3/11/24'));
+    expect(hoverAt(later.result, later.position)?.markdown).toContain('Value: **630 mmHg** = 84.0 kPa');
+  });
+
+  it('give the pressure estimated from a header altitude in the header\'s unit', () => {
+    // West's model atmosphere, 2000 m: exp(6.63268 − 0.1112 × 2 − 0.00149 × 2²) = 604.5 mmHg = 80.6 kPa
+    // (West JB, Prediction of barometric pressures at high altitudes with the use of model
+    // atmospheres, J Appl Physiol 1996 — from memory; UCUM for the kPa).
+    const pb = Math.exp(6.63268 - 0.1112 * 2 - 0.00149 * 4);
+    expect(pb).toBeCloseTo(604.5, 1);
+    expect(ucumKpa(pb)).toBeCloseTo(80.6, 1);
+    const gas = ['oxygen venturi, fio2 0.28', 'abg 7.40/5.3/9.0/24'];
+    const kpa = checkNote(note('units gas kPa', 'place altitude 2000 m', '@ 08:00', ...gas));
+    const [inKpa] = hintsOn(kpa, 1);
+    expect(inKpa?.label).toBe('PB 80.6 kPa (604)');
+    expect(inKpa?.tooltipMarkdown).toContain('**Barometric pressure** (PB): **80.6 kPa (604 mmHg)**');
+    // A `units gas kPa` of the first timepoint is not the header's: the header line stays in mmHg.
+    const later = checkNote(note('place altitude 2000 m', '@ 08:00', 'units gas kPa', ...gas));
+    const [inMmhg] = hintsOn(later, 0);
+    expect(inMmhg?.label).toBe('PB 604 mmHg');
+    expect(inMmhg?.tooltipMarkdown).toContain('**Barometric pressure** (PB): **604 mmHg**');
+    // The timepoint itself is in kPa.
+    expect(hintsOn(later, 4)[0]?.label).toMatch(/^P\/F [\d.]+ kPa/);
   });
 });
 

@@ -7,7 +7,7 @@
  */
 import type { NoteResult } from '../core/check-note';
 import type { StatedValue, Timepoint } from '../core/analysis/model';
-import { shortOf, formatAlternative, formatStated, describeOrigin, showsKpa, statedInKpa } from '../core/present';
+import { shortOf, formatAlternative, formatStated, describeOrigin, headerShowsKpa, showsKpa, statedInKpa } from '../core/present';
 import { fieldById } from '../core/fields/registry';
 import { unitById } from '../core/fields/units';
 import { displayUnit, inLikelyUnit } from '../core/analysis/read-value';
@@ -46,8 +46,9 @@ export function renderShow(path: string, result: NoteResult, p: Paint): string {
   const tpByEnd = new Map<number, Timepoint>();
   for (const tp of analysis.timeline.timepoints) tpByEnd.set(tp.endLine, tp);
 
+  const headerLines = new Set(analysis.timeline.header.map((s) => s.line));
   let printedHeader = false;
-  /** The timepoint the line belongs to (null in the header): its gas unit decides how gas pressures are shown. */
+  /** The timepoint the line belongs to (null in the header): its gas unit decides how gas pressures are shown, the header's on header lines. */
   let current: Timepoint | null = null;
   for (const node of analysis.tree.lines) {
     const tp = tpByStart.get(node.line);
@@ -60,7 +61,8 @@ export function renderShow(path: string, result: NoteResult, p: Paint): string {
         out.push('', p.bold('header'));
         printedHeader = true;
       }
-      out.push(renderSectionLine(node, statedByLine.get(node.line) ?? [], showsKpa(current), p));
+      const kpa = headerLines.has(node.line) ? headerShowsKpa(analysis.timeline) : showsKpa(current);
+      out.push(renderSectionLine(node, statedByLine.get(node.line) ?? [], kpa, p));
     } else if (node.kind === 'unknown') {
       out.push(`  ${p.red('?')} ${visible(node.text.trim())}`);
     }

@@ -4,6 +4,7 @@
  */
 import type { InputValue, Origin, StatedValue, Timepoint } from './analysis/model';
 import { displayUnit } from './analysis/read-value';
+import type { Timeline } from './analysis/timeline';
 import { fieldById, shortName } from './fields/registry';
 import { convert, unitById, type UnitDef } from './fields/units';
 import { formatNumber } from './util/format';
@@ -86,6 +87,14 @@ export const KPA_DECIMALS = decimalsFor('kPa', 1);
 /** Whether gas pressures at this timepoint are shown in kPa first: its gas unit in force is kPa. */
 export function showsKpa(tp: Timepoint | null | undefined): boolean {
   return tp?.gasUnit === 'kPa';
+}
+
+/**
+ * Whether gas pressures on the note's header lines (before the first timepoint) are shown in kPa
+ * first: by the same rule as at a timepoint, the gas unit in force at the header's end is kPa.
+ */
+export function headerShowsKpa(timeline: Timeline): boolean {
+  return timeline.headerGasUnit === 'kPa';
 }
 
 /** A pressure in mmHg, in kPa (the unit registry's conversion: 1 kPa = 7.50062 mmHg). */

@@ -50,6 +50,11 @@ export interface Timeline {
   readonly readIssues: readonly ReadIssue[];
   /** Values stated in the header (before the first timepoint). */
   readonly header: readonly StatedValue[];
+  /**
+   * The gas unit in force at the end of the header: its last `units gas`, else the gasUnit
+   * setting. Header values are shown in it, as a timepoint's values are shown in its `gasUnit`.
+   */
+  readonly headerGasUnit: 'mmHg' | 'kPa';
 }
 
 interface BlockResult {
@@ -121,7 +126,7 @@ export function buildTimelineIncremental(tree: NoteTree, settings: Settings, pre
     for (const issue of result.issues) readIssues.push(issue);
     state = result.stateOut;
   }
-  return { timeline: { timepoints, readIssues, header }, cache: { settings, lines, blocks: entries, reused } };
+  return { timeline: { timepoints, readIssues, header, headerGasUnit: headerGasUnit(header, settings) }, cache: { settings, lines, blocks: entries, reused } };
 }
 
 /**
@@ -245,6 +250,15 @@ interface ReadContextIn {
 
 function readContext(state: CarryState, settings: Settings): ReadContextIn {
   return { place: state.place, gasUnit: state.gasUnit, read: { gasUnit: gasUnitInForce(state, settings), barometricMmhg: barometricInForce(state.place, settings) } };
+}
+
+/** The gas unit in force at the end of the header: its last `units gas`, else the setting. */
+function headerGasUnit(header: readonly StatedValue[], settings: Settings): 'mmHg' | 'kPa' {
+  for (let i = header.length - 1; i >= 0; i--) {
+    const s = header[i]!;
+    if (s.fieldId === 'gas_unit' && s.word !== null) return s.word as 'mmHg' | 'kPa';
+  }
+  return settings.gasUnit;
 }
 
 /** The gas unit bare numbers are read in: the last `units gas` held, else the setting. */

@@ -17,7 +17,7 @@ import type { DerivedValue, Interpretation, Term, TimepointDerivation } from '..
 import { kpaFirstCompact, kpaNumber } from '../present';
 import { formatNumber } from '../util/format';
 import { derivedBody, derivedInKpa, termText } from './derived-hover';
-import { contentEnd, lineAt } from './locate';
+import { contentEnd, isHeaderLine, lineAt } from './locate';
 import { cautionLine, escapeMarkdown, paragraphs } from './markdown';
 import { describeInputOrigin } from '../derive/context';
 import { derivationOf, derivedAt } from '../derive/registry';
@@ -103,6 +103,7 @@ interface Entry {
   readonly values: readonly DerivedValue[];
   readonly reading: Interpretation | null;
   readonly derivation: TimepointDerivation;
+  /** The timepoint whose gas unit the tooltip follows (on a header line, as the header shows it). */
   readonly timepoint: Timepoint;
 }
 
@@ -154,12 +155,13 @@ export function inlayHints(result: NoteResult, lines: LineSpan, options: HintOpt
           if (d.id !== pick.id) continue;
           const line = pick.line ? pick.line(d) : d.line;
           if (!inRange(line) || shown.has(`${line}:${d.id}`)) continue;
-          const kpa = derivedInKpa(d, tp);
+          const shownAt = isHeaderLine(result, line) ? asOnHeader(tp, result.analysis.timeline.headerGasUnit) : tp;
+          const kpa = derivedInKpa(d, shownAt);
           const n = `${hintNumber(d, kpa, pick.unit === true)}${d.usesCarried ? CARRIED_MARK : ''}`;
           const label = pick.text(n, d, all.filter((v) => v.line === d.line), kpa);
           if (!label) continue;
           shown.add(`${line}:${d.id}`);
-          add(line, category, { label, values: [d], reading: null, derivation, timepoint: tp });
+          add(line, category, { label, values: [d], reading: null, derivation, timepoint: shownAt });
         }
       }
     }
@@ -187,6 +189,16 @@ export function inlayHints(result: NoteResult, lines: LineSpan, options: HintOpt
     }
   }
   return hints;
+}
+
+/**
+ * The timepoint as a header line shows it: a value derived there but shown on a header line (a
+ * pressure estimated from the header's altitude) follows the header's gas unit, as the header's
+ * own values do (`headerShowsKpa`); it differs from the timepoint's only where the first
+ * timepoint has a `units gas` line of its own.
+ */
+function asOnHeader(tp: Timepoint, headerGasUnit: Timepoint['gasUnit']): Timepoint {
+  return tp.gasUnit === headerGasUnit ? tp : { ...tp, gasUnit: headerGasUnit };
 }
 
 /** `178`, `628 mmHg` (with `unit`), or for a gas pressure in kPa `23.7 kPa (178)`. */

@@ -13,12 +13,12 @@ import type { DerivedValue, TimepointDerivation } from '../derive/model';
 import { derivedDef } from '../derive/registry';
 import { fieldFor, fieldsInSection, type FieldDef } from '../fields/registry';
 import { sectionById, type SectionId } from '../fields/sections';
-import { describeInput, formatAlternative, formatStated, showsKpa, statedInKpa } from '../present';
+import { describeInput, formatAlternative, formatStated, statedInKpa } from '../present';
 import type { SectionLine, TimepointLine } from '../syntax/tree';
 import type { Position } from '../types';
 import { formatNumber, formatShort } from '../util/format';
 import { derivedValueText } from './derived-hover';
-import { allStated, contentEnd, contentStart, isValidPosition, itemAt, lineAt, lineRange, spanContains, statedOf, timepointOfLine, type ItemHit } from './locate';
+import { allStated, contentEnd, contentStart, isValidPosition, itemAt, lineAt, lineRange, showsKpaOnLine, spanContains, statedOf, timepointOfLine, type ItemHit } from './locate';
 import { cautionLine, code, escapeMarkdown, paragraphs } from './markdown';
 import type { HoverInfo } from './types';
 
@@ -85,7 +85,7 @@ function fieldMarkdown(result: NoteResult, node: SectionLine, hit: ItemHit): str
   const head = `**${escapeMarkdown(field.label)}** — ${keyWords} on this ${code(node.section)} line`;
   const parts: (string | null)[] = [head, escapeMarkdown(field.description)];
   if (stated) {
-    parts.push(valueText(stated, timepointOfLine(result, stated.line)), unitText(result, stated, field), originText(result, stated), usableText(stated), feedsText(result, stated));
+    parts.push(valueText(stated, showsKpaOnLine(result, stated.line)), unitText(result, stated, field), originText(result, stated), usableText(stated), feedsText(result, stated));
   } else if (hit.item.value) {
     parts.push(`${code(hit.item.value.text)} could not be read as ${escapeMarkdown(field.label)}.`);
   }
@@ -105,13 +105,13 @@ function alternativeText(s: StatedValue): string | null {
 }
 
 /**
- * `Value: **71 mmHg** = 9.5 kPa`; at a timepoint whose gas unit is kPa, a gas pressure in kPa
- * first: `Value: **9.5 kPa** = 71 mmHg`.
+ * `Value: **71 mmHg** = 9.5 kPa`; where gas pressures are shown in kPa first (`showsKpa`, at a
+ * timepoint or on a header line), a gas pressure in kPa first: `Value: **9.5 kPa** = 71 mmHg`.
  */
-function valueText(s: StatedValue, tp: Timepoint | null): string {
+function valueText(s: StatedValue, kpaFirst: boolean): string {
   if (s.word !== null) return `Value: **${escapeMarkdown(s.word)}**`;
   if (s.value === null && !s.parts) return `Value: ${code(s.item.value?.text ?? '')} (not read)`;
-  const kpa = showsKpa(tp) ? statedInKpa(s) : null;
+  const kpa = kpaFirst ? statedInKpa(s) : null;
   if (kpa) return `Value: **${escapeMarkdown(kpa)}** = ${escapeMarkdown(formatStated(s))}`;
   const shown = formatStated(s);
   const alt = alternativeText(s);

@@ -5,6 +5,7 @@
  */
 import type { NoteResult } from '../check-note';
 import type { StatedValue, Timepoint } from '../analysis/model';
+import { headerShowsKpa, showsKpa } from '../present';
 import { isBlank } from '../syntax/lexer';
 import type { ItemNode, LineNode, SectionLine, Span } from '../syntax/tree';
 import type { Position, Range } from '../types';
@@ -75,15 +76,26 @@ export function statedOf(result: NoteResult, line: number, item: ItemNode): Stat
   return null;
 }
 
+/** Whether a line is one of the note's header lines (it states values before the first timepoint). */
+export function isHeaderLine(result: NoteResult, line: number): boolean {
+  return result.analysis.timeline.header.some((s) => s.line === line);
+}
+
 /** The timepoint whose lines include `line` (null for header lines and lines before any timepoint). */
 export function timepointOfLine(result: NoteResult, line: number): Timepoint | null {
   const t = result.analysis.timeline;
-  if (t.header.some((s) => s.line === line)) return null;
+  if (isHeaderLine(result, line)) return null;
   for (let i = t.timepoints.length - 1; i >= 0; i--) {
     const tp = t.timepoints[i]!;
     if (line >= tp.startLine && line <= tp.endLine) return tp;
   }
   return null;
+}
+
+/** Whether gas pressures on a line are shown in kPa first: by its timepoint's gas unit, or on a header line the header's. */
+export function showsKpaOnLine(result: NoteResult, line: number): boolean {
+  const tp = timepointOfLine(result, line);
+  return tp ? showsKpa(tp) : headerShowsKpa(result.analysis.timeline);
 }
 
 export function lineRange(line: number, start: number, end: number): Range {
