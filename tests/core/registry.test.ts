@@ -106,4 +106,9 @@ describe('unit registry', () => {
     expect(unitsForSpelling('%').map((u) => u.id).sort()).toEqual(['%', '%sat']);
     expect(unitsForSpelling('furlong')).toEqual([]);
   });
+
+  it('spells a percentage alike for a fraction (FiO2) and a saturation (SpO2): `spo2 94 pct` reads as `fio2 40 pct` does', () => {
+    const spellings = (id: string) => [...new Set([id === '%sat' ? '%' : id, ...unitById(id)!.aliases].map((s) => s.toLowerCase()))].sort();
+    expect(spellings('%sat')).toEqual(spellings('%'));
+  });
 });

@@ -63,7 +63,8 @@ export const UNITS: readonly UnitDef[] = [
   unit('mbar', 'airway-pressure', 'mbar', linear(CMH2O_PER_MBAR), ['hpa']),
   unit('fraction', 'fraction', '1', linear(1), []),
   unit('%', 'fraction', '%', linear(0.01), ['percent', 'pct']),
-  unit('%sat', 'percent', '%', linear(1), ['%', 'percent']),
+  // Spelt as the fraction's percentage is (`spo2 94 pct` as `fio2 40 pct`).
+  unit('%sat', 'percent', '%', linear(1), ['%', 'percent', 'pct']),
   unit('/min', 'rate', '/min', linear(1), ['bpm', 'min-1', 'breaths/min', 'beats/min', '/m']),
   unit('C', 'temperature', 'Cel', linear(1), ['°c', 'degc', 'c', 'celsius']),
   unit('F', 'temperature', '[degF]', { toBase: (v) => ((v - 32) * 5) / 9, fromBase: (v) => (v * 9) / 5 + 32 }, ['°f', 'degf', 'f', 'fahrenheit']),
