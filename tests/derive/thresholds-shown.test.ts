@@ -40,6 +40,12 @@ describe('readings and checks', () => {
     expect(r['acid-base']).toMatch(/PaCO2 33 is above the expected 28\.5–32\.5 mmHg: suspect an added respiratory acidosis\.$/);
   });
 
+  it('shows the bounds of an unusual value in another unit with the decimals that keep the value outside them', () => {
+    // Height soft bounds 120–220 cm (the registry's own, common practice): 47.24–86.61 in.
+    const messages = checkNote('patient height 47.1 in\n@ 08:00').findings.map((f) => f.message);
+    expect(messages).toContain('Height 47.1 is unusual (usually 47.2 in to 87 in): check the unit and the transcription.');
+  });
+
   it('shows a plateau of 30.4 and a driving pressure of 15.4 as such beside 30 and 15', () => {
     const messages = checkNote('@ 08:00\nvent peep 15, plateau 30.4, fio2 0.5').findings.map((f) => f.message);
     expect(messages).toContain('Plateau pressure 30.4 cmH2O is above 30 cmH2O.');

@@ -9,7 +9,7 @@ import { fieldById, type Bounds, type FieldDef } from '../fields/registry';
 import { displayUnit } from '../analysis/read-value';
 import { convert, unitById } from '../fields/units';
 import { toRange } from '../syntax/tree';
-import { formatNumber } from '../util/format';
+import { formatAgainst } from '../util/format';
 import { defineCheck, type CheckContext, type CheckDef } from './check';
 
 const OWN_CHECKS = new Set(['fio2']);
@@ -35,9 +35,14 @@ function valueCheck(test: (ctx: CheckContext, stated: StatedValue, barometricMmh
 function describe(bounds: Bounds, field: FieldDef, s: StatedValue): string {
   const unit = unitById(s.readUnit ?? field.unit ?? '') ?? unitById(field.unit ?? '');
   const canonical = unitById(field.unit ?? '');
+  const inRead = (v: number) => (unit && canonical ? convert(v, canonical, unit) : v) ?? v;
+  // The value as written, so that each bound keeps it on its side: a height of 47.1 in is not
+  // "usually 47 in to 87 in" when the bound is 47.24 in (120 cm).
+  const first = inRead(s.value ?? s.parts?.[0] ?? NaN);
+  const second = s.parts && s.parts.length > 1 ? inRead(s.parts[1]!) : NaN;
   const show = (v: number) => {
-    const inRead = unit && canonical ? convert(v, canonical, unit) : v;
-    return `${formatNumber(inRead ?? v, field.decimals)}${unit && unit.id !== 'fraction' && unit.id !== 'ph' ? ` ${displayUnit(unit.id)}` : ''}`;
+    const bound = inRead(v);
+    return `${formatAgainst(bound, field.decimals, first, second)}${unit && unit.id !== 'fraction' && unit.id !== 'ph' ? ` ${displayUnit(unit.id)}` : ''}`;
   };
   if (bounds.min !== undefined && bounds.max !== undefined) return `${show(bounds.min)} to ${show(bounds.max)}`;
   if (bounds.min !== undefined) return `at least ${show(bounds.min)}`;
