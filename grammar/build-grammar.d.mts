@@ -41,7 +41,8 @@ export interface Snippet {
 }
 
 export function ci(word: string): string;
-export function unitSpellings(units: GrammarRegistries['UNITS']): string[];
+/** Unit spellings a note can write; those of two words (`mm hg`) only with `twoWords`. */
+export function unitSpellings(units: GrammarRegistries['UNITS'], twoWords?: boolean): string[];
 export function buildGrammar(registries: GrammarRegistries): Grammar;
 export function buildSnippets(registries: Pick<GrammarRegistries, 'FIELDS'>): Record<string, Snippet>;
 export function toJsonText(value: unknown): string;

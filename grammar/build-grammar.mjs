@@ -101,12 +101,13 @@ function keysOf(FIELDS, sectionId) {
 }
 
 /**
- * Unit spellings a note can write. Spellings with a blank (`mm hg`, `cm h2o`) are left out:
- * the lexer splits chunks at blanks, so the parser never reads them as one unit.
+ * Unit spellings a note can write. Spellings with a blank (`mm hg`, `cm h2o`) are left out unless
+ * `twoWords`: the parser reads them as one unit only after blanks (`80 mm Hg`), never glued to a
+ * number (`80mm Hg` is the unknown unit `mm`, then the word `Hg`).
  */
-export function unitSpellings(UNITS) {
+export function unitSpellings(UNITS, twoWords = false) {
   const out = [];
-  for (const u of UNITS) for (const s of [u.id, ...u.aliases]) if (!/\s/.test(s)) out.push(s);
+  for (const u of UNITS) for (const s of [u.id, ...u.aliases]) if (twoWords || !/\s/.test(s)) out.push(s);
   return [...new Set(out)];
 }
 
@@ -147,15 +148,16 @@ function assemble(...parts) {
 const numeric = { name: sc('constant.numeric'), patterns: [{ include: '#decimal-comma' }] };
 
 /**
- * A unit after blanks: a known unit (always, as in the parser, even when the word is also a
- * key), or an unknown word of at most 12 characters that is not a key of the section and is not
+ * A unit after blanks: a known unit (one of two words too, `mm Hg`), unless it is also a key of
+ * the section and a number follows it (then it is that key, as in the parser: `pco2 40 ph 7.4`),
+ * or an unknown word of at most 12 characters that is not a key of the section and is not
  * followed by a number (the parser keeps it as the unit, to report it).
  */
 function spacedUnit(units, keys) {
   return [
     '\\s+(?:',
     // A unit spelling that is also a key of the section, with a number after it, is that key (`pco2 40 ph 7.4`).
-    `(?!${keys}${END}\\s+${NUM_START})`, cap('keyword.other.unit', units), END,
+    `(?!${keys}${END}\\s+${NUM_START})`, cap('keyword.other.unit', units.spaced), END,
     `|(?!${keys}${END})(?=[A-Za-z%°])`, cap('keyword.other.unit.unknown', '[^\\s,#]{1,12}'), END, `(?!\\s+${NUM_START})`,
     ')',
   ];
@@ -166,7 +168,7 @@ function numberWithUnit(units, keys) {
   return [
     cap(numeric, NUM),
     '(?:',
-    cap('keyword.other.unit', units), END,
+    cap('keyword.other.unit', units.glued), END,
     '|', cap('keyword.other.unit.unknown', `[^\\s,#]${CHUNK_REST}`),
     '|', spacedUnit(units, keys),
     ')?',
@@ -205,7 +207,7 @@ const LONG_PAIR_SPACED = slashGroup(3, 12, SPACED);
  */
 function groupTail(units, keys) {
   return [
-    '(?:', cap('keyword.other.unit', units), END,
+    '(?:', cap('keyword.other.unit', units.glued), END,
     '|', cap('keyword.other.unit.unknown', '[A-Za-z%°][^\\s,#/]*'), END,
     '|', END, '(?:', spacedUnit(units, keys), ')?',
     ')',
@@ -220,7 +222,7 @@ function shorthandLead(units, keys) {
 /** Values written where no key comes before them (the parser reports them), or a misplaced shorthand. */
 function strayRules(gas, units) {
   const slash = assemble(START, cap(gas ? shorthand : pair('meta.pair'), gas ? SHORTHAND : PAIR), END);
-  const number = assemble(START, cap(numeric, NUM), '(?:', cap('keyword.other.unit', units), END, '|', cap('keyword.other.unit.unknown', `[^\\s,#]${CHUNK_REST}`), ')?');
+  const number = assemble(START, cap(numeric, NUM), '(?:', cap('keyword.other.unit', units.glued), END, '|', cap('keyword.other.unit.unknown', `[^\\s,#]${CHUNK_REST}`), ')?');
   return [
     {
       comment: gas ? 'A shorthand gas not at the start of the line.' : 'Numbers joined by a slash with no key before them.',
@@ -333,7 +335,8 @@ function unknownBegin() {
  * the core). Pure: the same registries give the same object.
  */
 export function buildGrammar({ SECTIONS, FIELDS, UNITS }) {
-  const units = alt(unitSpellings(UNITS));
+  // Units glued to a number are one word; after blanks, a unit may be two (`mm Hg`).
+  const units = { glued: alt(unitSpellings(UNITS)), spaced: alt(unitSpellings(UNITS, true)) };
   const repository = {
     comment: {
       comment: '`#` starts a comment that runs to the end of the line, anywhere on the line.',

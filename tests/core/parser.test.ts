@@ -211,6 +211,19 @@ describe('section lines', () => {
     expect(at(text, section(text).prose?.span)).toBe('a, b,');
   });
 
+  it('reads a unit of two words after a number (`mm Hg`, `cm H2O`), but not one glued to it', () => {
+    const text = 'abg po2 80 mm Hg, pco2 40 MM  hg be -2';
+    expect(section(text).items.map((i) => summary(text, i))).toEqual(['po2 | 80 | mm Hg', 'pco2 | 40 | MM  hg', 'be | -2 | <none>']);
+    const vent = 'vent peep 5 cm H2O rate 20';
+    expect(section(vent).items.map((i) => summary(vent, i))).toEqual(['peep | 5 | cm H2O', 'rate | 20 | <none>']);
+    const gas = 'abg 7.31/41/80/24 mm Hg';
+    expect(section(gas).items.map((i) => summary(gas, i))).toEqual(['ph | 7.31 | <none>', 'pco2 | 41 | mm Hg', 'po2 | 80 | mm Hg', 'hco3 | 24 | <none>']);
+    const glued = 'abg po2 80mm Hg';
+    expect(section(glued).items.map((i) => summary(glued, i))).toEqual(['po2 | 80 | mm', 'hg | <none> | <none>']);
+    const height = 'patient height 170 cm, weight 70';
+    expect(section(height).items.map((i) => summary(height, i))).toEqual(['height | 170 | cm', 'weight | 70 | <none>']);
+  });
+
   it('keeps an unknown unit as the unit, for the unit check to name', () => {
     const text = 'abg po2 71 mmhgg, pco2 40';
     expect(section(text).items.map((i) => summary(text, i))).toEqual(['po2 | 71 | mmhgg', 'pco2 | 40 | <none>']);

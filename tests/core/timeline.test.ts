@@ -37,6 +37,13 @@ describe('timepoints and time', () => {
     expect(codes('@ day 1 08:00\nvitals bp 120/80/60, hr 80')).toEqual(['PN102']);
   });
 
+  it('reads units of two words (`mm Hg`, `cm H2O`), however many blanks are between the words', () => {
+    const text = '@ day 1 08:00\nabg po2 80 mm Hg, pco2 5.3 kPa\nvent peep 5 cm\tH2O, ps 10 cm  h2o';
+    const tp = timeline(text).timepoints[0];
+    expect([value(tp, 'pao2'), value(tp, 'peep'), value(tp, 'pressure_support')]).toEqual([80, 5, 10]);
+    expect(codes(text)).toEqual([]);
+  });
+
   it('makes an implicit first timepoint for values before any `@`', () => {
     const t = timeline('patient age 60 y\nvitals hr 80\n@ 08:00\nvitals hr 90');
     expect(t.timepoints.map((tp) => tp.label)).toEqual(['start', '08:00']);

@@ -48,6 +48,16 @@ describe('the grammar knows the registries', () => {
     expect(await misses(cases)).toEqual([]);
   });
 
+  it('every unit spelling of two words after a blank (`mm Hg`), as the parser reads it', async () => {
+    const twoWords = unitSpellings(UNITS, true).filter((u) => /\s/.test(u));
+    expect(twoWords.length).toBeGreaterThan(0);
+    const cases = twoWords.flatMap((u) => variants(u).flatMap((w) => [
+      { line: `abg po2 1 ${w}, pco2 2`, word: w.split(' ')[1]!, from: 10, scope: S('keyword.other.unit') },
+      { line: `vent peep 1 ${w}`, word: w.split(' ')[1]!, from: 11, scope: S('keyword.other.unit') },
+    ]));
+    expect(await misses(cases)).toEqual([]);
+  });
+
   it('every word value: devices (lead and keyed), modes, sex words, gas units', async () => {
     const words = (id: string) => Object.keys(FIELDS.find((f) => f.id === id)?.words ?? {});
     const oxygenKeys = keysInSection('oxygen');

@@ -115,10 +115,18 @@ export function unitsForSpelling(text: string): readonly UnitDef[] {
   const known = spellingCache.get(text);
   if (known) return known;
   const exact = byId.get(text);
-  const folded = byLowerSpelling.get(text.toLowerCase()) ?? [];
+  const folded = byLowerSpelling.get(text.toLowerCase()) ?? byLowerSpelling.get(oneSpaced(text)) ?? [];
   const found = exact ? [exact, ...folded.filter((u) => u !== exact)] : folded;
   if (found.length > 0 && spellingCache.size < SPELLING_CACHE_LIMIT) spellingCache.set(text, found);
   return found;
+}
+
+/**
+ * A unit of two words as the registry spells it: lower case, one space between the words (`mm
+ * Hg` written with a tab or two spaces is still millimetres of mercury). Only on a miss.
+ */
+function oneSpaced(text: string): string {
+  return text.toLowerCase().split(/\s+/).join(' ');
 }
 
 export function isKnownUnitSpelling(text: string): boolean {

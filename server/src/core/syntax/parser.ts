@@ -715,12 +715,27 @@ function deviceWordAt(chunks: readonly Word[], i: number): { text: string; span:
   return null;
 }
 
-/** The chunk at `i` when it reads as the unit of the number before it; null when it does not. */
-function unitWordAt(chunks: readonly Word[], i: number, section: SectionId): Word | null {
+/**
+ * How many chunks the unit `unitWordAt` read last takes: 2 for a unit of two words (`mm Hg`),
+ * else 1. One variable, read right after the call, rather than an object per unit.
+ */
+let UNIT_CHUNKS = 1;
+
+/**
+ * The chunk at `i` when it reads as the unit of the number before it, or the two chunks from `i`
+ * when they read as a unit of two words (`mm Hg`, `cm H2O`: `source` is the line they are cut
+ * from); null when it does not. How many chunks the unit takes is left in UNIT_CHUNKS.
+ */
+function unitWordAt(chunks: readonly Word[], i: number, section: SectionId, source: string): Located | null {
+  UNIT_CHUNKS = 1;
   const next = chunks[i];
   if (!next || next.afterComma) return null;
   if (scanNumber(next.text) > 0) return null;
   const after = chunks[i + 1];
+  if (after !== undefined && !after.afterComma && startsTwoWordUnit(next.text, after.text)) {
+    UNIT_CHUNKS = 2;
+    return token(source.slice(next.start, after.end), next.start, after.end);
+  }
   const numberAfter = after !== undefined && !after.afterComma && scanNumber(after.text) > 0;
   // `pco2 40 ph 7.4`: a unit spelling that is also a key of the section, with a number after it, is that key.
   if (isKnownUnitSpelling(next.text)) return numberAfter && isKey(section, next.text) ? null : next;
@@ -729,6 +744,17 @@ function unitWordAt(chunks: readonly Word[], i: number, section: SectionId): Wor
   // Something unit-like we do not know: keep it as the unit so the unit check can name it. Punctuation
   // (`hr 80 / rr 20`) is no unit: it is reported as stray text.
   return next.text.length <= 12 && isUnitStart(next.text.charCodeAt(0)) ? next : null;
+}
+
+/**
+ * Whether two words make a unit written with a blank (`mm Hg`, `cm H2O`; any case). Only `mm` or
+ * `cm` followed by a word that starts with `h` can: the words are joined and looked up only then,
+ * so the words after most numbers cost two character reads here.
+ */
+function startsTwoWordUnit(first: string, second: string): boolean {
+  if (first.length !== 2 || (first.charCodeAt(1) | 0x20) !== 0x6d /* m */ || (second.charCodeAt(0) | 0x20) !== 0x68 /* h */) return false;
+  const c = first.charCodeAt(0) | 0x20;
+  return (c === 0x6d /* m */ || c === 0x63 /* c */) && isKnownUnitSpelling(`${first} ${second}`);
 }
 
 /** `source` is the text of the line (spans and numbers' texts refer to it). */
@@ -750,8 +776,8 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
       if (group.count < 2 || group.count > 4) {
         issues.push({ check: 'bad-shorthand', span: { start: group.start, end: group.end }, message: `A shorthand gas has 2 to 4 numbers (pH/PCO2/PO2/HCO3); this one has ${group.count}.`, fixes: [] });
       } else {
-        const unit = glued ?? unitWordAt(chunks, i, section);
-        if (unit && unit !== glued) i++;
+        const unit = glued ?? unitWordAt(chunks, i, section, source);
+        if (unit && unit !== glued) i += UNIT_CHUNKS;
         group.parts.forEach((part, k) => {
           const keyName = SHORTHAND_KEYS[k]!;
           const isPressure = keyName === 'pco2' || keyName === 'po2';
@@ -776,8 +802,8 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
           const comma = SCANNED.decimalComma;
           i++;
           const glued = gluedUnit(next, length);
-          const unit = glued ?? unitWordAt(chunks, i, section);
-          if (unit !== glued) i++; // the unit is the next chunk
+          const unit = glued ?? unitWordAt(chunks, i, section, source);
+          if (unit !== glued) i += UNIT_CHUNKS; // the unit is the next chunk (or two)
           const keyName = dev.text.toLowerCase() === 'cpap' ? 'level' : 'flow';
           items[count++] = numberItem(null, keyName, 'device-flow', fieldFor(section, keyName) ?? null, source, number, next.start, next.start + length, comma, unit, next.start);
         }
@@ -828,8 +854,8 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
         if (group) {
           value = group;
           i += used;
-          unit = glued ?? unitWordAt(chunks, i, section);
-          if (unit && unit !== glued) i++;
+          unit = glued ?? unitWordAt(chunks, i, section, source);
+          if (unit && unit !== glued) i += UNIT_CHUNKS;
           if (field?.kind === 'number') {
             // `hr 80/90`: numbers joined by a slash where the key takes one; nothing would be read from it.
             issues.push({ check: 'missing-value', span: { start: key.start, end: group.end }, message: `\`${key.text}\` takes one number; \`${group.text}\` is ${countWord(group.count)} numbers, so it is not read.`, fixes: [] });
@@ -842,8 +868,8 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
           const comma = SCANNED.decimalComma;
           i++;
           const glued = gluedUnit(next, length);
-          unit = glued ?? unitWordAt(chunks, i, section);
-          if (unit !== glued) i++; // the unit is the next chunk
+          unit = glued ?? unitWordAt(chunks, i, section, source);
+          if (unit !== glued) i += UNIT_CHUNKS; // the unit is the next chunk (or two)
           items[count++] = numberItem(key.text, keyName, null, field, source, number, next.start, next.start + length, comma, unit, key.start);
           if (field?.kind === 'pair') {
             // `bp 120`: a key that takes two numbers with one; nothing would be read from it.
