@@ -112,6 +112,14 @@ describe('ranges and fixes', () => {
     expect(privacyHits(fixed)).toEqual([]);
   });
 
+  it('the fix replaces a whole date with a two-digit year, a name after a title in capitals and one name word after a relative', () => {
+    const note = 'note      MR SMITH seen 4 Mar 26; wife: Mary';
+    const edits = checkNote(note).findings.filter((f) => isPrivacyCode(f.code)).flatMap((f) => f.fixes.flatMap((x) => x.edits));
+    const fixed = applyEdits(note, edits);
+    expect(fixed).toBe('note      MR [name] seen [date]; wife: [name]');
+    expect(privacyHits(fixed)).toEqual([]);
+  });
+
   it('placeholders are not marked safe to apply unseen (a possible identifier is a guess)', () => {
     const f = checkNote('note      name: Jane Roe').findings.find((x) => x.code === 'PN501');
     expect(f?.fixes).toHaveLength(1);
@@ -124,7 +132,7 @@ describe('ranges and fixes', () => {
   });
 
   it('every placeholder leaves the line free of privacy findings', () => {
-    for (const phrase of ['name: Jane Roe', 'born 1961-03-12', '4 March 2026', '+44 20 7946 0958', 'NHS 943 476 5919', 'SW1A 1AA', '12345-6789']) {
+    for (const phrase of ['name: Jane Roe', 'MS JANE ROE', 'daughter - Anne', 'born 1961-03-12', '4 March 2026', '12 March 61', '+44 20 7946 0958', 'NHS 943 476 5919', 'SW1A 1AA', '12345-6789']) {
       const note = `note      ${phrase}`;
       const edits = checkNote(note).findings.filter((f) => isPrivacyCode(f.code)).flatMap((f) => f.fixes.flatMap((x) => x.edits));
       expect(edits.length, phrase).toBeGreaterThan(0);

@@ -46,7 +46,7 @@ const CLINICAL_WORDS = [
   'after', 'the', 'first', 'hour', 'of', 'treatment', 'arrival', 'ward', 'intubated', 'extubated', 'nebs', 'salbutamol',
   'ipratropium', 'prednisolone', 'amoxicillin', 'NIV', 'HFNC', 'CPAP', 'ABG', 'VBG', 'ICU', 'HDU', 'ED', 'GCS', 'NEWS2',
   'Glasgow', 'Berlin', 'definition', 'Winters', 'formula', 'Dr review', 'Mr review', 'Dr on call', 'name', 'called', 'seen',
-  'by', 'with', 'discussed',
+  'by', 'with', 'discussed', 'MR', 'MS', 'DR', 'SEVERE', 'ECHO',
   'target', 'sats', 'breathless', 'tachypnoeic', 'tired', 'drowsy', 'improving', 'worse', 'stable', 'x4', 'x2', 'times',
   'day', 'days', 'weeks', 'age', 'y', 'mg', 'mcg', 'mL', 'L/min', 'P/F', 'S/F', 'ROX', 'LOINC', 'wheeze', 'cough', 'sputum',
   'proned', 'recruitment', 'manoeuvre', 'trial', 'SBT', 'passed', 'failed', 'Outreach', 'team', 'aware', 'informed',

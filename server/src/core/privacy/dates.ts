@@ -2,7 +2,8 @@
  * Calendar dates and dates of birth. Numeric dates need three parts with one separator
  * (`2026-03-04`, `04/03/2026`, `4.3.2026`) and a four-digit year from 1900 to 2099; a two-digit
  * year (`12/03/61`) counts only after a birth cue. Written dates need a month name next to a day
- * or a year (`4 March 2026`, `March 4, 2026`, `4th of March`, `Mar 2026`). A date after a birth
+ * or a year (`4 March 2026`, `March 4, 2026`, `4th of March`, `Mar 2026`); a two-digit year after
+ * a day and a month is part of the date (`4 Mar 26`, `4-Mar-26`). A date after a birth
  * cue (`DOB`, `D.O.B.`, `born`, `date of birth`) is a date of birth, and so is a bare year there.
  * Shorthand gases (`7.28/56/71/26`), pressures (`120/80`), fractions (`3/7`) and LOINC codes
  * (`2744-1`) have the wrong number of parts or a decimal, so they never read as dates.
@@ -175,6 +176,21 @@ function joinedNumber(text: string, at: number, direction: -1 | 1): boolean {
   return (c === '.' || c === ',' || c === ':' || c === '/' || c === '-') && isDigitAt(text, at + direction);
 }
 
+/**
+ * Whether a two-digit year (`yearRun`) belongs to the day and month before it, so that the
+ * finding covers it too: between hyphens (`4-Mar-26`), or after blanks (`4 Mar 26`, `12 March 61`)
+ * when it is no quantity (`4 May 10 mg` is a date and a dose) and no part of a longer number
+ * (`4 Mar 10:30`, `4 Mar 26.5`). With blanks, a month in capitals (`MAR` is also a drug chart)
+ * takes it only after a birth cue (`DOB 12 MAR 61`).
+ */
+function twoDigitYearAfter(text: string, dayGap: string, month: Run, yearRun: Run, start: number): boolean {
+  const gap = text.slice(month.end, yearRun.start);
+  if (dayGap === '-' && gap === '-') return true;
+  if (!isBlankGap(dayGap) || !isBlankGap(gap)) return false;
+  if (birthCueBefore(text, start) !== null) return true;
+  return !isCapitals(month.text) && !joinedNumber(text, yearRun.end, 1) && !followedByUnit(text, yearRun.end);
+}
+
 function writtenDates(text: string, runs: readonly Run[]): Found[] {
   const out: Found[] = [];
   const gapOk = (x: Run | undefined, y: Run | undefined) => x !== undefined && y !== undefined && isWordGap(text.slice(x.end, y.start), isAbbreviatedMonth(x));
@@ -210,14 +226,9 @@ function writtenDates(text: string, runs: readonly Run[]): Found[] {
       end = yearRun!.end;
       found = true;
       year = true;
-    } else if (dayGap !== null && k === i + 1 && isTwoDigitYear(yearRun)) {
-      // A two-digit year after a day and a month: `4-Mar-26` (hyphens both sides), or after a
-      // birth cue `DOB 12 Mar 61`.
-      const gap = text.slice(month.end, yearRun!.start);
-      if ((dayGap === '-' && gap === '-') || (isBlankGap(dayGap) && isBlankGap(gap) && birthCueBefore(text, start) !== null)) {
-        end = yearRun!.end;
-        year = true;
-      }
+    } else if (dayGap !== null && k === i + 1 && isTwoDigitYear(yearRun) && twoDigitYearAfter(text, dayGap, month, yearRun!, start)) {
+      end = yearRun!.end;
+      year = true;
     }
     if (!found) continue;
     // A month in capitals (`MAR` is also a drug chart, `MAY` a word) needs a year.

@@ -10,26 +10,33 @@
  * after a title (`Dr Miller`) or a given name after a naming word (`name Jo Allen`). After a weak cue, and after a relative followed by `:` or `-`
  * (`Mother - Asthma`), two name words are needed (`patient Jane Roe`), so `Patient Settled
  * overnight` and `Patient Controlled Analgesia` stay silent; a comma after a relative ends the cue.
+ * One name word after a relative with `:` or `-` counts when it ends the phrase, is no disease
+ * and no history heading came before it (`wife: Mary`, `daughter - Anne, 07700 900123`).
+ * Titles in capitals (`MR`, `MRS`, `MS`, `DR`, `PROF`) are also abbreviations (mitral
+ * regurgitation, multiple sclerosis, doctor in shorthand): they count only with name words in
+ * capitals right after them (`MR SMITH`, `MS JANE ROE`, not `MR severe`, `MS FLARE`, `MR ANGIO`).
  */
 import { FIELDS } from '../fields/registry';
 import { SECTIONS } from '../fields/sections';
 import { UNITS } from '../fields/units';
-import { isBlankGap, isLowerChar, isUpperChar, runsOf, type Run } from './text';
+import { isBlankGap, isLetterChar, isLowerChar, isUpperChar, runsOf, type Run } from './text';
 import { match, type PrivacyMatch } from './types';
 
 type Strength = 'strong' | 'weak';
 
 /**
- * Titles count only capitalised, in these spellings: `MR` (mitral regurgitation), `MS`, `mr`
- * (`mod mr`) and `dr` (`chest dr`, a drain) are abbreviations, not titles.
+ * Titles count capitalised, in these spellings. In lower case (`mod mr`, `chest dr` a drain) and
+ * in capitals (`MR` mitral regurgitation, `MS` multiple sclerosis) they are also abbreviations:
+ * see `BARE_TITLES` and `CAPITAL_TITLES`.
  */
 const TITLES = new Set(['Mr', 'Mrs', 'Ms', 'Miss', 'Mx', 'Dr', 'Prof']);
 /** Naming words: after these a given name may come before an eponym surname (`name Jo Allen`). */
 const NAMING_WORDS = new Set(['name', 'named', 'aka', 'surname', 'forename']);
 /**
  * Relatives: a cue when a name follows directly (`wife Mary`). After `:` or `-` they head a
- * family or social history (`Mother - Asthma`) and need two name words, like a weak cue; a comma
- * after them ends the cue (`lives with wife, Independent`).
+ * family or social history (`Mother - Asthma`) and need two name words, like a weak cue, or one
+ * that passes `isLoneNameAfterRelative` (`wife: Mary`); a comma after them ends the cue (`lives
+ * with wife, Independent`).
  */
 const RELATIVES = new Set(['wife', 'husband', 'partner', 'son', 'daughter', 'mother', 'father', 'sister', 'brother']);
 const OTHER_STRONG_WORDS = new Set(['nok', 'carer']);
@@ -50,7 +57,7 @@ const NOT_NAMES = new Set([
   'the', 'a', 'an', 'and', 'or', 'but', 'is', 'was', 'has', 'had', 'have', 'with', 'without', 'on', 'in', 'at', 'to', 'for', 'of',
   'not', 'no', 'now', 'then', 'today', 'tonight', 'yesterday', 'tomorrow', 'overnight', 'also', 'again', 'still', 'this', 'that',
   'he', 'she', 'they', 'his', 'her', 'their', 'it', 'we', 'i', 'please', 'plan', 'see', 'nil', 'none', 'all', 'both', 'same',
-  'here', 'there', 'who', 'which', 'when', 'will', 'would', 'should', 'can', 'could', 'may', 'might', 'must', 'after', 'before',
+  'here', 'there', 'who', 'which', 'when', 'will', 'would', 'should', 'can', 'could', 'may', 'might', 'must', 'after', 'before', 'yes',
   'during', 'from', 'into', 'over', 'under', 'via', 'per', 'as', 'by', 'if', 'so', 'very', 'well', 'more', 'less', 'much',
   // clinical states and actions
   'settled', 'stable', 'unstable', 'unwell', 'well', 'improving', 'improved', 'worse', 'worsening', 'deteriorating', 'better',
@@ -97,9 +104,12 @@ const NOT_NAMES = new Set([
   'lymphoma', 'diabetes', 'diabetic', 'hypertension', 'dementia', 'bronchiectasis', 'fibrosis', 'cystic', 'tuberculosis',
   'tb', 'heart', 'disease', 'failure', 'attack', 'mi', 'ihd', 'cva', 'clots', 'clot', 'dvt', 'pe', 'epilepsy', 'arthritis',
   'deceased', 'died', 'dead', 'alive', 'living', 'pregnant', 'healthy', 'fit', 'frail', 'elderly', 'nil', 'nkda', 'unknown',
+  'gout', 'eczema', 'lupus', 'migraine', 'angina', 'depression', 'anxiety', 'obesity', 'sarcoid', 'coeliac', 'thyroid',
+  'aneurysm', 'breast', 'bowel', 'prostate', 'adopted', 'housebound', 'bedbound',
   'lives', 'lived', 'live', 'independent', 'dependent', 'retired', 'works', 'worked', 'working', 'employed', 'unemployed',
   'smoker', 'smokers', 'smokes', 'smoked', 'smoking', 'non', 'ex', 'current', 'former', 'never', 'drinks', 'alcohol',
   'abroad', 'locally', 'nearby', 'alone', 'together', 'teacher', 'builder', 'farmer', 'miner', 'driver', 'cleaner',
+  'engineer', 'accountant', 'plumber', 'electrician', 'secretary', 'solicitor', 'mechanic', 'labourer',
   'housewife', 'student', 'supportive', 'involved', 'visits', 'cares', 'helps', 'manages', 'independently', 'adls', 'adl',
   'wife', 'husband', 'partner', 'son', 'daughter', 'mother', 'father', 'brother', 'sibling', 'siblings', 'friend', 'neighbour',
   'neighbor', 'niece', 'nephew', 'aunt', 'uncle', 'cousin', 'grandson', 'granddaughter', 'grandmother', 'grandfather', 'nok',
@@ -181,7 +191,7 @@ function isNotName(word: string, eponymsAllowed: boolean): boolean {
  * What a cue is: a title (`Dr`), a naming word (`name`), a relative (`wife`), another strong
  * cue (`NOK`, `next of kin`, `known as`) or a weak one (`patient`, `seen by`).
  */
-type CueKind = 'title' | 'bare-title' | 'naming' | 'relative' | 'strong' | 'weak';
+type CueKind = 'title' | 'bare-title' | 'capital-title' | 'naming' | 'relative' | 'strong' | 'weak';
 
 /**
  * Titles that are also abbreviations, so they count only with a capitalised name word right after
@@ -190,6 +200,52 @@ type CueKind = 'title' | 'bare-title' | 'naming' | 'relative' | 'strong' | 'weak
  * management plan (`Mx: Augmentin IV`). `ms` (multiple sclerosis), `miss` (a verb) and `mx` never count.
  */
 const BARE_TITLES = new Set(['dr', 'mr', 'mrs', 'prof', 'Mx']);
+
+/**
+ * Titles in capitals (a `capital-title` cue): `MR` is also mitral regurgitation, magnetic
+ * resonance or modified release, `MS` multiple sclerosis or mitral stenosis, `DR` a doctor in
+ * shorthand, so they count only with name words in capitals right after them, after blanks alone
+ * (`MR SMITH`, `MS JANE ROE`; not `MR severe`, `MR, AS`), and those words may not be the clinical
+ * ones of `AFTER_CAPITAL_ABBREVIATION`. `MISS` (a verb) and `MX` (management) never count.
+ */
+const CAPITAL_TITLES = new Set(['MR', 'MRS', 'MS', 'DR', 'PROF']);
+
+/**
+ * Words before `MR`, `MS` or `DR` that make them abbreviations (`mod MR`, `known MS`, `no MR`,
+ * `chest DR` a drain): grades and the words of a history. Lower case.
+ */
+const BEFORE_CAPITAL_ABBREVIATION = new Set([
+  'mod', 'sev', 'severe', 'moderate', 'mild', 'trace', 'trivial', 'significant', 'functional', 'new', 'known', 'no', 'nil',
+  'of', 'chest',
+]);
+
+/**
+ * Words in capitals that follow `MR`, `MS` or `DR` used as abbreviations, beside the known
+ * abbreviations (`ECHO`, `MRI`, `ICU`, `NIV`, `ABG`) and the not-names (`SEVERE`, `REVIEW`,
+ * `AWARE`), which never count either. Lower case.
+ */
+const AFTER_CAPITAL_ABBREVIATION = new Set([
+  // magnetic resonance (`MR ANGIO`, `MR HEAD`)
+  'angio', 'angiogram', 'angiography', 'venogram', 'scan', 'head', 'brain', 'spine', 'liver', 'pelvis', 'contrast', 'mra',
+  // the mitral valve (`MR JET`, `MR MURMUR`), and other valve lesions or echoes listed after it (`MR AR`, `MR TOE`)
+  'jet', 'grade', 'murmur', 'valve', 'mitral', 'repair', 'ar', 'ai', 'ti', 'pi', 'tte', 'toe', 'tee', 'excluded', 'unchanged',
+  'resolved', 'secondary', 'known',
+  // multiple sclerosis (`MS FLARE`) and slow-release morphine (`MS CONTIN`, `MR MORPHINE`)
+  'flare', 'relapse', 'relapsing', 'remitting', 'progressive', 'diagnosed', 'neuro', 'contin', 'morphine',
+  // grades and queries (`MR MOD`, `MR QUERY`, `MS HISTORY`)
+  'mod', 'sev', 'query', 'history',
+  // a doctor in shorthand (`DR ROUND`, `DR RE SATS`, `DR BUSY`) and diabetic retinopathy (`DR SCREENING`)
+  'round', 'letter', 're', 'due', 'told', 'busy', 'coming', 'screening', 'background', 'proliferative',
+]);
+
+/**
+ * A past participle in capitals after `MR` or `DR` (`DR DELAYED`, `MR WORSENED`): seven letters or
+ * more ending in `ED`, but not `MED`, `RED` or `EED`, the endings of given names (`MOHAMMED`,
+ * `MILDRED`, `WALEED`).
+ */
+function isParticipleShaped(word: string): boolean {
+  return word.length >= 7 && word.endsWith('ED') && !'MRE'.includes(word.charAt(word.length - 3));
+}
 
 interface Cue {
   readonly kind: CueKind;
@@ -203,10 +259,11 @@ function cueAt(text: string, runs: readonly Run[], i: number): Cue | null {
   if (BARE_TITLES.has(run.text)) return { kind: 'bare-title', label: run.text };
   if (TITLES.has(run.text)) return { kind: 'title', label: run.text };
   const lower = run.text.toLowerCase();
-  // All-capital words are abbreviations, not cues (`PT` physiotherapy), except `NOK`.
-  if (run.text.length > 1 && run.text === run.text.toUpperCase() && lower !== 'nok') return null;
   const prev = runs[i - 1];
   const prevWord = prev && isBlankGap(text.slice(prev.end, run.start)) ? prev.text.toLowerCase() : null;
+  if (CAPITAL_TITLES.has(run.text)) return prevWord !== null && BEFORE_CAPITAL_ABBREVIATION.has(prevWord) ? null : { kind: 'capital-title', label: run.text };
+  // All-capital words are abbreviations, not cues (`PT` physiotherapy), except `NOK`.
+  if (run.text.length > 1 && run.text === run.text.toUpperCase() && lower !== 'nok') return null;
   const withPrev = prev ? text.slice(prev.start, run.end) : run.text;
   if (lower === 'as' && prevWord === 'known') return { kind: 'naming', label: withPrev };
   if (lower === 'kin' && prevWord === 'of') {
@@ -274,8 +331,10 @@ interface NameWord {
  * possibly joined to more by an apostrophe or a hyphen (`O'Brien`, `Smith-Jones`), or an
  * initial (`J` or `J.`). Eponyms count only when `eponymsAllowed` (after a title, or after a
  * given name that follows a naming word). A word cut before a hyphen and a lower-case word is a prefix (`Ex-smoker`, `Non-`).
+ * After a title in capitals (`capitals`), only words in capitals count, and not the clinical words
+ * that follow `MR`, `MS` or `DR` as abbreviations (`MR ANGIO`, `MS FLARE`).
  */
-function nameWordAt(text: string, runs: readonly Run[], i: number, eponymsAllowed: boolean): NameWord | null {
+function nameWordAt(text: string, runs: readonly Run[], i: number, eponymsAllowed: boolean, capitals = false): NameWord | null {
   const run = runs[i];
   if (!run || run.kind !== 'letters') return null;
   let j = i;
@@ -283,7 +342,7 @@ function nameWordAt(text: string, runs: readonly Run[], i: number, eponymsAllowe
   let parts = 1;
   for (;;) {
     const next = runs[j + 1];
-    if (!next || next.kind !== 'letters' || !(isCapitalised(next.text) || isCapitalsName(next.text))) break;
+    if (!next || next.kind !== 'letters' || !((!capitals && isCapitalised(next.text)) || isCapitalsName(next.text))) break;
     const joint = text.slice(end, next.start);
     if (joint !== "'" && joint !== '\u2019' && joint !== '-') break;
     parts++;
@@ -296,9 +355,10 @@ function nameWordAt(text: string, runs: readonly Run[], i: number, eponymsAllowe
     return { start: run.start, end: text.charAt(end) === '.' ? end + 1 : end, next: j + 1, initial: true };
   }
   if (text.charAt(end) === '-' && isLowerChar(text.charAt(end + 1))) return null;
-  const headOk = isCapitalised(head) || isCapitalsName(head) || (parts > 1 && head.length === 1 && isUpperChar(head));
+  const headOk = (!capitals && isCapitalised(head)) || isCapitalsName(head) || (parts > 1 && head.length === 1 && isUpperChar(head));
   // A title starts a name of its own (`seen by Dr Patel`: the name is `Patel`, after `Dr`).
-  if (!headOk || TITLES.has(head) || isNotName(head, eponymsAllowed) || isNotName(text.slice(run.start, end), eponymsAllowed)) return null;
+  if (!headOk || TITLES.has(head) || CAPITAL_TITLES.has(head) || isNotName(head, eponymsAllowed) || isNotName(text.slice(run.start, end), eponymsAllowed)) return null;
+  if (capitals && (AFTER_CAPITAL_ABBREVIATION.has(head.toLowerCase()) || AFTER_CAPITAL_ABBREVIATION.has(text.slice(run.start, end).toLowerCase()) || isParticipleShaped(head))) return null;
   return { start: run.start, end, next: j + 1, initial: false };
 }
 
@@ -315,9 +375,45 @@ function givenNameAt(text: string, runs: readonly Run[], i: number): NameWord | 
   return w && !w.initial ? { start: run.start, end: run.end, next: i + 1, initial: false } : null;
 }
 
+/** Words that head a family or social history (`FHx:`, `SH:`, `Family history:`). Lower case. */
+const HISTORY_HEADINGS = new Set(['fh', 'fhx', 'sh', 'shx', 'family', 'social']);
+
+/** Endings of the names of diseases (`Sarcoidosis`, `Glaucoma`, `Anaemia`, `Autism`). */
+const DISEASE_ENDINGS = ['itis', 'osis', 'oma', 'aemia', 'emia', 'pathy', 'ism'];
+
+/** A word of six letters or more with the ending of a disease, or an eponymous disease (`Parkinsons`). */
+function isDiseaseShaped(word: string): boolean {
+  const lower = word.toLowerCase();
+  if (lower.endsWith('s') && EPONYMS.has(lower.slice(0, -1))) return true;
+  return lower.length >= 6 && DISEASE_ENDINGS.some((ending) => lower.endsWith(ending));
+}
+
+/**
+ * Whether one name word after a relative and `:` or `-` is a name (`wife: Mary`; `NOK: Peter`
+ * needs no such test, `NOK` being a strong cue): capitalised, not in capitals (`Father: COPD`); no disease
+ * (`Mother - Sarcoidosis`); the end of its phrase, so no word follows it (`Mother: Breast cancer`,
+ * but `daughter - Anne, 07700 900123`); and no history heading earlier in the text
+ * (`FHx: Father - Hypothyroid`), where the words after a relative are conditions.
+ */
+function isLoneNameAfterRelative(text: string, word: NameWord, headingBefore: boolean): boolean {
+  if (headingBefore || !isUpperChar(text.charAt(word.start)) || !isLowerChar(text.charAt(word.start + 1))) return false;
+  if (isDiseaseShaped(text.slice(word.start, word.end))) return false;
+  let k = word.end;
+  while (k < text.length && isBlankGap(text.charAt(k))) k++;
+  return k === text.length || !isLetterChar(text.charAt(k));
+}
+
+/** The index of the first run that heads a history, or the number of runs when none does. */
+function firstHistoryHeading(runs: readonly Run[]): number {
+  for (let k = 0; k < runs.length; k++) if (HISTORY_HEADINGS.has(runs[k]!.text.toLowerCase())) return k;
+  return runs.length;
+}
+
 export function findNames(text: string): PrivacyMatch[] {
   const runs = runsOf(text);
   const out: PrivacyMatch[] = [];
+  // Found when a relative with a mark first needs it (most texts have none).
+  let heading = -1;
   for (let i = 0; i < runs.length; i++) {
     const found = cueAt(text, runs, i);
     if (!found) continue;
@@ -328,17 +424,18 @@ export function findNames(text: string): PrivacyMatch[] {
     const mark = cueGapMark(text.slice(cue.end, first.start), found.kind === 'title');
     if (mark === null) continue;
     // A title that is also an abbreviation takes the name right after it, after blanks only (`mod mr, Severe AS`).
-    if (found.kind === 'bare-title' && mark !== ' ') continue;
+    if ((found.kind === 'bare-title' || found.kind === 'capital-title') && mark !== ' ') continue;
     let weak = found.kind === 'weak';
     if (found.kind === 'relative') {
       // `lives with wife, Independent ADLs`: a comma ends the cue; `Mother - Asthma`, `Father: COPD`
-      // head a history and need two name words.
+      // head a history and need two name words, or one that ends its phrase (`wife: Mary`).
       if (mark === ',') continue;
       if (mark !== ' ') weak = true;
     }
     // Eponyms are surnames after a title (`Dr Miller`) and after a given name following a naming
     // word (`name Jo Allen`); `name Berlin` alone stays a definition.
-    const title = found.kind === 'title' || found.kind === 'bare-title';
+    const capitals = found.kind === 'capital-title';
+    const title = found.kind === 'title' || found.kind === 'bare-title' || capitals;
     const naming = found.kind === 'naming';
     // `name is Jane Roe`, `name was Jane Roe`.
     if ((first.text === 'is' || first.text === 'was') && runs[j + 1] && isBlankGap(text.slice(first.end, runs[j + 1]!.start))) j++;
@@ -351,7 +448,8 @@ export function findNames(text: string): PrivacyMatch[] {
         const gap = text.slice(prevEnd, run.start);
         if (!(isBlankGap(gap) || (words[words.length - 1]!.initial && gap.length === 0))) break;
       }
-      const w = nameWordAt(text, runs, j, title || (naming && words.length > 0)) ?? (words.length === 0 && (title || naming) ? givenNameAt(text, runs, j) : null);
+      // A given name that is also a word is not read in capitals (`DR WILL PRESCRIBE`, `MS MAY RELAPSE`).
+      const w = nameWordAt(text, runs, j, title || (naming && words.length > 0), capitals) ?? (words.length === 0 && (title || naming) && !capitals ? givenNameAt(text, runs, j) : null);
       if (!w) break;
       words.push(w);
       prevEnd = w.end;
@@ -360,7 +458,12 @@ export function findNames(text: string): PrivacyMatch[] {
     // Drop trailing initials: an initial alone is no name (`Dr A`).
     while (words.length > 0 && words[words.length - 1]!.initial) words.pop();
     const full = words.filter((w) => !w.initial).length;
-    if (full === 0 || (weak && words.length < 2)) continue;
+    if (full === 0) continue;
+    if (weak && words.length < 2) {
+      if (found.kind !== 'relative') continue;
+      if (heading < 0) heading = firstHistoryHeading(runs);
+      if (!isLoneNameAfterRelative(text, words[0]!, heading < i)) continue;
+    }
     // `name: ROE, Jane`, `Name - Roe, Jane`: a surname, a comma, then the given names.
     if (naming && words.length === 1) {
       const next = runs[j];
