@@ -3,7 +3,9 @@ import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { renderCheckDocs } from '../server/src/core/checks/docs';
 import { CHECKS, docAnchor } from '../server/src/core/checks/registry';
-import { FIELD_TABLE_START, replaceBetween, withGeneratedTables } from '../server/src/core/fields/docs';
+import { FIELD_TABLE_START, renderFieldTable, replaceBetween, withGeneratedTables } from '../server/src/core/fields/docs';
+import { FIELDS } from '../server/src/core/fields/registry';
+import { UNITS } from '../server/src/core/fields/units';
 import { COLUMNS_END, COLUMNS_START, renderColumnTable } from '../server/src/core/export/docs';
 
 describe('check documentation', () => {
@@ -16,6 +18,15 @@ describe('check documentation', () => {
     expect(doc).toContain(FIELD_TABLE_START);
     expect(doc).toContain('<!-- derived:start');
     expect(withGeneratedTables(doc)).toBe(doc);
+  });
+
+  it('grammar/README.md lists every spelling a note may write: units and the words of word fields', () => {
+    const table = renderFieldTable().toLowerCase();
+    for (const u of UNITS) for (const spelling of [u.id, ...u.aliases]) {
+      if (u.id === '%sat') continue; // written as `%`, listed with the fraction's percentage
+      expect(table, spelling).toContain(`\`${spelling.toLowerCase()}\``);
+    }
+    for (const f of FIELDS) for (const word of Object.keys(f.words ?? {})) expect(table, word).toMatch(new RegExp(`(?:[:,]|\\(or) ${word}[,) |]`));
   });
 
   it('README.md carries the current list of export columns', () => {

@@ -26,7 +26,7 @@ export interface UnitDef {
   /** Canonical spelling as written back into a note. */
   readonly id: string;
   readonly dimension: Dimension;
-  /** Other spellings accepted (matched case-insensitively). */
+  /** Other spellings accepted (matched case-insensitively; written here as the docs list them). */
   readonly aliases: readonly string[];
   readonly ucum: string;
   /** Value in this unit → value in the dimension's base unit. */
@@ -57,17 +57,17 @@ function unit(
 
 /** Base units: mmHg, cmH2O, fraction, %, /min, °C, mL, L/min, g/dL, mmol/L, cm, kg, years, pH units. */
 export const UNITS: readonly UnitDef[] = [
-  unit('mmHg', 'gas-pressure', 'mm[Hg]', linear(1), ['mm hg', 'mmhg', 'torr']),
+  unit('mmHg', 'gas-pressure', 'mm[Hg]', linear(1), ['mm Hg', 'mmhg', 'torr']),
   unit('kPa', 'gas-pressure', 'kPa', linear(MMHG_PER_KPA_EXACT), ['kpa']),
-  unit('cmH2O', 'airway-pressure', 'cm[H2O]', linear(1), ['cmh2o', 'cm h2o', 'cmwater']),
-  unit('mbar', 'airway-pressure', 'mbar', linear(CMH2O_PER_MBAR), ['hpa']),
+  unit('cmH2O', 'airway-pressure', 'cm[H2O]', linear(1), ['cmh2o', 'cm H2O', 'cmwater']),
+  unit('mbar', 'airway-pressure', 'mbar', linear(CMH2O_PER_MBAR), ['hPa']),
   unit('fraction', 'fraction', '1', linear(1), []),
   unit('%', 'fraction', '%', linear(0.01), ['percent', 'pct']),
   // Spelt as the fraction's percentage is (`spo2 94 pct` as `fio2 40 pct`).
   unit('%sat', 'percent', '%', linear(1), ['%', 'percent', 'pct']),
   unit('/min', 'rate', '/min', linear(1), ['bpm', 'min-1', 'breaths/min', 'beats/min', '/m']),
-  unit('C', 'temperature', 'Cel', linear(1), ['°c', 'degc', 'c', 'celsius']),
-  unit('F', 'temperature', '[degF]', { toBase: (v) => ((v - 32) * 5) / 9, fromBase: (v) => (v * 9) / 5 + 32 }, ['°f', 'degf', 'f', 'fahrenheit']),
+  unit('C', 'temperature', 'Cel', linear(1), ['°C', 'degC', 'c', 'celsius']),
+  unit('F', 'temperature', '[degF]', { toBase: (v) => ((v - 32) * 5) / 9, fromBase: (v) => (v * 9) / 5 + 32 }, ['°F', 'degF', 'f', 'fahrenheit']),
   unit('mL', 'volume', 'mL', linear(1), ['ml', 'cc']),
   unit('L', 'volume', 'L', linear(1000), ['l']),
   unit('L/min', 'flow', 'L/min', linear(1), ['l/min', 'lpm', 'l/m', 'litres/min', 'liters/min']),
