@@ -52,11 +52,14 @@ const CLINICAL_WORDS = [
   'proned', 'recruitment', 'manoeuvre', 'trial', 'SBT', 'passed', 'failed', 'Outreach', 'team', 'aware', 'informed',
 ];
 
+// Single letters (`C`, `L`, `F`) are left out: after a cue word and before a capitalised word,
+// a lone letter is an initial (`Patient L. Heparin`, `name C Berlin`), a shape of a real name
+// that the name check must flag, so a note holding one is not a false positive.
 const REGISTRY_WORDS = [
   ...SECTIONS.flatMap((s) => [s.id, ...s.aliases]),
   ...FIELDS.flatMap((f) => [...f.aliases, f.label, ...Object.keys(f.words ?? {})]),
   ...UNITS.flatMap((u) => [u.id, ...u.aliases]),
-];
+].filter((w) => w.length > 1);
 
 const LOINC = FIELDS.flatMap((f) => (f.loinc ? [f.loinc.code, `LOINC ${f.loinc.code}`, f.loinc.display] : []));
 
