@@ -16,6 +16,18 @@ const noNetwork = {
   },
 };
 
+/**
+ * jsonc-parser's `main` is a UMD module whose `require` calls esbuild cannot follow (the bundle
+ * would fail at run time with "Cannot find module './impl/format'"); its ES module build, the one
+ * its `module` field names for bundlers, bundles whole.
+ */
+const jsoncParserAsModule = {
+  name: 'pneumark-jsonc-parser-module',
+  setup(b) {
+    b.onResolve({ filter: /^jsonc-parser$/ }, () => ({ path: new URL('./node_modules/jsonc-parser/lib/esm/main.js', import.meta.url).pathname }));
+  },
+};
+
 const artefacts = [
   { name: 'cli', entry: 'server/src/cli/main.ts' },
   { name: 'core', entry: 'server/src/core/index.ts' },
@@ -39,7 +51,7 @@ await Promise.all(
       external: a.external ?? [],
       metafile: true,
       logLevel: 'warning',
-      plugins: [noNetwork],
+      plugins: [noNetwork, jsoncParserAsModule],
       // Some ESM dependencies read import.meta.url; in a CommonJS bundle it comes from __filename.
       ...(a.platform === 'browser' ? {} : {
         define: { 'import.meta.url': '__pneumarkImportMetaUrl' },

@@ -39,7 +39,14 @@ describe('an invalid pneumark.config.json', () => {
     const dir = project('{\n  "gasUnit": "kPa",\n}\n');
     const out = io(dir);
     expect(await run(['check', 'ward/k.pneu'], out)).toBe(2);
-    expect(out.err()).toMatch(/^pneumark: pneumark\.config\.json:3:1: is not valid JSON \(.*\); Pneumark uses its defaults\.\n$/);
+    expect(out.err()).toBe('pneumark: pneumark.config.json:3:1: is not valid JSON (a comma cannot come just before `}`); Pneumark uses its defaults.\n');
+  });
+
+  it('says in plain words that comments are not allowed, where the comment starts', async () => {
+    const dir = project('{\n  "gasUnit": "kPa" // the ward writes kPa\n}\n');
+    const out = io(dir);
+    expect(await run(['check', 'ward/k.pneu'], out)).toBe(2);
+    expect(out.err()).toBe('pneumark: pneumark.config.json:2:20: is not valid JSON (comments are not allowed in pneumark.config.json); Pneumark uses its defaults.\n');
   });
 
   it('names check codes in disabledChecks that are no check, where they are written', async () => {

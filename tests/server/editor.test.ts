@@ -169,7 +169,7 @@ describe('pneumark.config.json', () => {
     const configUri = pathToFileURL(join(dir, 'pneumark.config.json')).toString();
     client.open(join(dir, 'note.pneu'), '@ 08:00\nabg pco2 40\n');
     const p = await client.diagnostics(configUri);
-    expect(p.diagnostics[0]?.message).toMatch(/not valid JSON/);
-    expect(p.diagnostics[0]?.range.start).toEqual({ line: 1, character: 13 });
+    expect(p.diagnostics[0]?.message).toMatch(/not valid JSON \(`kPa` is not a value: text must be in double quotes/);
+    expect(p.diagnostics[0]?.range).toEqual({ start: { line: 1, character: 13 }, end: { line: 1, character: 16 } });
   });
 });

@@ -1,8 +1,8 @@
-// Editor settings read key by key, the diagnostic of an invalid pneumark.config.json at the
-// place JSON.parse stopped, and the size limit counted in UTF-8 bytes.
+// Editor settings read key by key, the diagnostic of an invalid pneumark.config.json (where the
+// JSON stops being valid and what is wrong, in plain words), and the size limit counted in UTF-8 bytes.
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { jsonErrorOffset, parseProjectConfig } from '../../server/src/core/config';
+import { parseProjectConfig } from '../../server/src/core/config';
 import { DEFAULT_SETTINGS, settingsSchema } from '../../server/src/core/settings';
 import { exceedsBytes, formattedLines } from '../../server/src/server/server';
 import { DEFAULT_CLIENT_SETTINGS, effectiveSettings, readClientSettings } from '../../server/src/server/settings';
@@ -76,42 +76,91 @@ describe('the waterVapour setting', () => {
 });
 
 describe('an invalid pneumark.config.json', () => {
-  const at = (text: string) => parseProjectConfig(text).problems[0]?.range.start;
+  const problem = (text: string) => parseProjectConfig(text).problems[0];
+  const at = (text: string) => problem(text)?.range.start;
 
-  it('is reported where JSON.parse stopped, also for messages without a position (Node 20)', () => {
+  it('is reported where the JSON stops being valid, also where Node 20’s message gives no position', () => {
     expect(at('{ "gasUnit": bar }')).toEqual({ line: 0, character: 13 });
     expect(at('{\n  "gasUnit": "kPa",\n  "alveolarEquation": simplified\n}')).toEqual({ line: 2, character: 22 });
     expect(at('[1,]')).toEqual({ line: 0, character: 3 });
     expect(at('{ "a": 1 } x')).toEqual({ line: 0, character: 11 });
     expect(at('{ "gasUnit": ')).toEqual({ line: 0, character: 13 });
-    expect(at('\uFEFF{\n "gasUnit": tru }')).toEqual({ line: 1, character: 15 });
+    expect(at('{\r\n  "gasUnit": "kPa",\r\n}\r\n')).toEqual({ line: 2, character: 0 });
   });
 
-  it('finds the first offset that is not JSON, the end when it ends early, none when it is JSON', () => {
-    const cases: [string, number | null][] = [
-      ['{"a": [1, 2.5e-3, -0, true, false, null, "x\\u00e9\\n"], "b": {}}', null],
-      ['  []  ', null],
-      ['', 0],
-      ['{"a":01}', 6],
-      ['{"a":1,}', 7],
-      ['{a:1}', 1],
-      ['{"a" 1}', 5],
-      ['{"a":"\u0001"}', 6],
-      ['"\\x"', 2],
-      ['[1.]', 3],
-      ['[-]', 2],
-      ['[nul]', 4],
-      ['[1 2]', 3],
-      ['{"a":1}}', 7],
-      [`${'['.repeat(100000)}${']'.repeat(100000)}`, null],
-      ['[[', 2],
+  it('covers the whole word or string that is wrong, and nothing past the end of the file', () => {
+    expect(problem('{ "gasUnit": bar }')?.range).toEqual({ start: { line: 0, character: 13 }, end: { line: 0, character: 16 } });
+    expect(problem('{\n "gasUnit": tru }')?.range).toEqual({ start: { line: 1, character: 12 }, end: { line: 1, character: 15 } });
+    expect(problem('{ "a": "C:\\Users" }')?.range).toEqual({ start: { line: 0, character: 7 }, end: { line: 0, character: 17 } });
+    expect(problem('{ "gasUnit": ')?.range).toEqual({ start: { line: 0, character: 13 }, end: { line: 0, character: 13 } });
+  });
+
+  it('says what is wrong in plain words', () => {
+    const cases: [string, { line: number; character: number }, string][] = [
+      ['{\n  // our ward\n  "gasUnit": "kPa"\n}', { line: 1, character: 2 }, 'comments are not allowed in pneumark.config.json'],
+      ['{ /* ward */ "gasUnit": "kPa" }', { line: 0, character: 2 }, 'comments are not allowed in pneumark.config.json'],
+      ['{\n  "gasUnit": "kPa",\n}', { line: 2, character: 0 }, 'a comma cannot come just before `}`'],
+      ['{ "disabledChecks": ["PN410",] }', { line: 0, character: 29 }, 'a comma cannot come just before `]`'],
+      ['{\n  "gasUnit": "kPa"\n  "waterVapour": "fixed"\n}', { line: 2, character: 2 }, 'a comma is missing'],
+      ['{ "gasUnit": "kPa",, "waterVapour": "fixed" }', { line: 0, character: 19 }, 'two commas with nothing between them'],
+      ['{ gasUnit: "kPa" }', { line: 0, character: 2 }, 'a property name must be in double quotes'],
+      ["{ 'gasUnit': \"kPa\" }", { line: 0, character: 2 }, 'a property name must be in double quotes, not single quotes'],
+      ["{ \"gasUnit\": 'kPa' }", { line: 0, character: 13 }, 'text must be in double quotes, not single quotes'],
+      ['{ "gasUnit" "kPa" }', { line: 0, character: 12 }, 'a colon (`:`) is missing after the property name'],
+      ['{ "gasUnit": }', { line: 0, character: 13 }, 'a value is missing'],
+      ['{ "hypoxaemiaBelowMmhg": 060 }', { line: 0, character: 26 }, 'a number cannot start with 0 followed by more digits'],
+      ['{ "respiratoryQuotient": .8 }', { line: 0, character: 25 }, '`.8` is not a number as JSON writes them (such as 7, -0.5 or 2e3)'],
+      ['{ "respiratoryQuotient": 8. }', { line: 0, character: 25 }, 'a number is cut short: a digit must follow `.` or `e`'],
+      ['{ "gasUnit": kPa }', { line: 0, character: 13 }, '`kPa` is not a value: text must be in double quotes, and the only words without them are true, false and null'],
+      ['{ "hints": { "transport": True } }', { line: 0, character: 26 }, 'true, false and null are written in lower case'],
+      ['{ "gasUnit": "kPa\n}', { line: 0, character: 13 }, 'a string is not closed: its closing `"` is missing before the end of the line'],
+      ['{ "$schema": "C:\\schemas" }', { line: 0, character: 13 }, 'a backslash in a string must be written `\\\\` or start an escape such as `\\n`'],
+      ['{ "$schema": "caf\\u00e" }', { line: 0, character: 13 }, 'a `\\u` escape needs four hexadecimal digits, such as `\\u00e9`'],
+      ['{ "$schema": "a\tb" }', { line: 0, character: 13 }, 'a string holds a control character such as a tab; write it as an escape such as `\\t`'],
+      ['{ "disabledChecks": ["PN410" }', { line: 0, character: 29 }, 'a comma or `]` is expected here, not `}`'],
+      ['{ "gasUnit": "kPa" ]', { line: 0, character: 19 }, 'a comma or `}` is expected here, not `]`'],
+      ['{ "gasUnit": "kPa" }\n{ "waterVapour": "fixed" }', { line: 1, character: 0 }, 'there is more after the end of the JSON value'],
+      ['{ "gasUnit": "kPa" } ;', { line: 0, character: 21 }, 'there is more after the end of the JSON value'],
+      ['{ "gasUnit": "kPa"', { line: 0, character: 18 }, 'the file ends too early: a closing `}` is missing'],
+      ['{ "disabledChecks": ["PN410"', { line: 0, character: 28 }, 'the file ends too early: a closing `]` is missing'],
+      ['{ "gasUnit": "kPa",', { line: 0, character: 19 }, 'the file ends too early: a property name is missing'],
+      ['{ "gasUnit": ;', { line: 0, character: 13 }, '`;` has no place here'],
+      ['{ "gasUnit":\u00a0"kPa" }', { line: 0, character: 12 }, 'an unexpected character (U+00A0)'],
+      ['', { line: 0, character: 0 }, 'the file is empty; write `{}` for a project without settings of its own'],
     ];
-    for (const [text, offset] of cases) {
-      expect(jsonErrorOffset(text), text.slice(0, 40)).toBe(offset);
-      let parses = true;
-      try { JSON.parse(text); } catch { parses = false; }
-      expect(parses, text.slice(0, 40)).toBe(offset === null);
+    for (const [text, start, words] of cases) {
+      const parsed = parseProjectConfig(text);
+      expect(() => JSON.parse(text) as unknown, text).toThrow();
+      expect(parsed.settings, text).toEqual({});
+      expect(parsed.problems, text).toHaveLength(1);
+      expect(parsed.problems[0]?.message, text).toBe(`pneumark.config.json is not valid JSON (${words}); Pneumark uses its defaults.`);
+      expect(parsed.problems[0]?.range.start, text).toEqual(start);
     }
+  });
+
+  it('takes every form strict JSON allows', () => {
+    const text = ' {"$schema": "x\\u00e9\\n\\/\\"\\\\", "respiratoryQuotient": 8e-1, "disabledChecks": [], "hints": {"transport": true}}\r\n\t';
+    expect(parseProjectConfig(text)).toEqual({ settings: { respiratoryQuotient: 0.8, disabledChecks: [] }, hints: { transport: true }, problems: [] });
+    // -0 is JSON; the schema, not the JSON, refuses it here.
+    expect(parseProjectConfig('{ "hypoxaemiaBelowMmhg": -0 }').problems.map((p) => p.message)).toEqual([expect.stringMatching(/^pneumark\.config\.json: `hypoxaemiaBelowMmhg`: /)]);
+  });
+
+  it('skips a byte-order mark at the start and reports one anywhere else at its place', () => {
+    expect(parseProjectConfig('\uFEFF{ "gasUnit": "kPa" }')).toEqual({ settings: { gasUnit: 'kPa' }, hints: {}, problems: [] });
+    expect(at('\uFEFF{\n "gasUnit": tru }')).toEqual({ line: 1, character: 12 });
+    expect(problem('{\n "gasUnit":\uFEFF "kPa" }')?.message).toMatch(/\(an unexpected character \(U\+FEFF\)\)/);
+    expect(at('{\n "gasUnit":\uFEFF "kPa" }')).toEqual({ line: 1, character: 11 });
+  });
+
+  it('reports nesting too deep to follow on the first line, and takes deep valid nesting as JSON', () => {
+    const open = '['.repeat(100000);
+    const unclosed = parseProjectConfig(open);
+    expect(unclosed.problems).toHaveLength(1);
+    expect(unclosed.problems[0]?.message).toMatch(/^pneumark\.config\.json is not valid JSON \(.+\); Pneumark uses its defaults\.$/);
+    expect(unclosed.problems[0]?.range).toEqual({ start: { line: 0, character: 0 }, end: { line: 0, character: 1 } });
+    const closed = parseProjectConfig(`${open}${']'.repeat(100000)}`);
+    expect(closed.problems).toHaveLength(1);
+    expect(closed.problems[0]?.message).not.toMatch(/not valid JSON/);
   });
 });
 

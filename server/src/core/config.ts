@@ -4,6 +4,7 @@
  * into plain data and validated against a strict schema, and only the validated copy is used.
  * Problems come back with the range they concern, for a diagnostic on the file itself.
  */
+import { getLocation, printParseErrorCode, visit, type ParseErrorCode } from 'jsonc-parser';
 import { z } from 'zod';
 import { CHECKS } from './checks/registry';
 import { HINT_CATEGORIES, type HintCategory } from './service/types';
@@ -45,8 +46,7 @@ export function parseProjectConfig(text: string): ParsedConfig {
   try {
     data = JSON.parse(text.charCodeAt(0) === 0xfeff ? text.slice(1) : text);
   } catch (error) {
-    const message = error instanceof Error ? error.message : String(error);
-    return { settings: {}, hints: {}, problems: [{ message: `${CONFIG_FILE_NAME} is not valid JSON (${message}); Pneumark uses its defaults.`, range: rangeOfJsonError(text, message) }] };
+    return { settings: {}, hints: {}, problems: [notJsonProblem(text, error)] };
   }
   const parsed = projectConfigSchema.safeParse(data);
   // Looked for even when another setting is invalid, so that one reading names every problem.
@@ -103,165 +103,128 @@ function rangeOfKey(text: string, key: string): Range {
 }
 
 /**
- * Where JSON.parse failed: the position its message gives (`… in JSON at position N`), else (the
- * messages of Node 20 and later that quote the text instead, `Unexpected token 'b', "…" is not
- * valid JSON`, and `Unexpected end of JSON input`) the first offset where the text stops being
- * JSON, found by `jsonErrorOffset`. Offsets count from after a byte-order mark, as parsed.
+ * The problem of a file JSON.parse refused. JSON.parse decides what is JSON (strict JSON: no
+ * comments, no trailing commas), so the file reads the same in every tool; jsonc-parser, held to
+ * the same rules, says where and what, as Node 20's messages often give no position. Offsets count
+ * from after a byte-order mark, as parsed.
  */
-function rangeOfJsonError(text: string, message: string): Range {
+function notJsonProblem(text: string, error: unknown): ConfigProblem {
   const bom = text.charCodeAt(0) === 0xfeff ? 1 : 0;
-  const parsed = bom === 1 ? text.slice(1) : text;
-  const m = /at position (\d+)/.exec(message);
-  const offset = m?.[1] !== undefined ? Number(m[1]) : jsonErrorOffset(parsed);
-  if (offset === null) return WHOLE_FIRST_LINE;
-  const at = Math.min(offset + bom, text.length);
-  return rangeOfOffsets(text, at, Math.min(at + 1, text.length));
+  const mistake = firstJsonMistake(bom === 1 ? text.slice(1) : text);
+  if (!mistake) {
+    const message = error instanceof Error ? error.message : String(error);
+    return { message: `${CONFIG_FILE_NAME} is not valid JSON (${message}); Pneumark uses its defaults.`, range: WHOLE_FIRST_LINE };
+  }
+  const start = bom + mistake.offset;
+  // At least one character, so that the editor shows it; none at the very end of the text.
+  const end = Math.min(Math.max(start + mistake.length, start + 1), text.length);
+  return { message: `${CONFIG_FILE_NAME} is not valid JSON (${mistake.words}); Pneumark uses its defaults.`, range: rangeOfOffsets(text, start, end) };
 }
 
-const enum Json {
-  /** A value is expected. */
-  Value,
-  /** After `{`: a key or `}`. */
-  FirstKey,
-  /** After `,` in an object: a key. */
-  Key,
-  /** After a key: `:`. */
-  Colon,
-  /** After a value in an object: `,` or `}`. */
-  AfterMember,
-  /** After `[`: a value or `]`. */
-  FirstElement,
-  /** After a value in an array: `,` or `]`. */
-  AfterElement,
-  /** After the top-level value: nothing but blanks. */
-  End,
+interface JsonMistake {
+  readonly offset: number;
+  readonly length: number;
+  /** What is wrong, in plain words. */
+  readonly words: string;
 }
+
+const STRICT_JSON = { disallowComments: true, allowTrailingComma: false, allowEmptyContent: false } as const;
 
 /**
- * The offset of the first character where `text` stops being valid JSON (RFC 8259), the length of
- * the text when it ends too early, or null when it is valid. Iterative: nesting depth costs no stack.
+ * The first mistake jsonc-parser finds in `json`, or null when it finds none or cannot look: its
+ * descent is recursive, and about ten thousand open brackets exhaust the stack.
  */
-export function jsonErrorOffset(text: string): number | null {
-  /** Open containers: true for an object. */
-  const open: boolean[] = [];
-  let state: Json = Json.Value;
-  let i = 0;
-  const n = text.length;
-  const afterValue = (): Json => (open.length === 0 ? Json.End : open[open.length - 1] ? Json.AfterMember : Json.AfterElement);
-  while (true) {
-    while (i < n) {
-      const c = text.charCodeAt(i);
-      if (c !== 0x20 && c !== 0x09 && c !== 0x0a && c !== 0x0d) break;
-      i++;
+function firstJsonMistake(json: string): JsonMistake | null {
+  const found: { code: ParseErrorCode; offset: number; length: number }[] = [];
+  try {
+    visit(json, { onError: (code, offset, length) => { if (found.length === 0) found.push({ code, offset, length }); } }, STRICT_JSON);
+  } catch (error) {
+    if (error instanceof RangeError) return null;
+    throw error;
+  }
+  const first = found[0];
+  if (!first) return null;
+  return { offset: first.offset, length: first.length, words: inPlainWords(json, printParseErrorCode(first.code), first.offset, first.length) };
+}
+
+/** What jsonc-parser's error code means at the place it gives, for someone who edits the file by hand. */
+function inPlainWords(json: string, code: ReturnType<typeof printParseErrorCode>, offset: number, length: number): string {
+  const found = json.slice(offset, offset + length);
+  if (offset >= json.length && code !== 'UnexpectedEndOfString' && code !== 'UnexpectedEndOfComment') {
+    if (/^[ \t\n\r]*$/.test(json)) return 'the file is empty; write `{}` for a project without settings of its own';
+    const missing = MISSING_AT_END[code];
+    return missing ? `the file ends too early: ${missing} is missing` : 'the file ends too early';
+  }
+  switch (code) {
+    case 'InvalidCommentToken':
+    case 'UnexpectedEndOfComment':
+      return `comments are not allowed in ${CONFIG_FILE_NAME}`;
+    case 'PropertyNameExpected':
+    case 'ValueExpected': {
+      const before = json.slice(0, offset).trimEnd().slice(-1);
+      if (before === ',' && (found === '}' || found === ']')) return `a comma cannot come just before \`${found}\``;
+      if (before === ',' && found === ',') return 'two commas with nothing between them';
+      if (found === ',' && (before === '{' || before === '[')) return `a comma cannot come just after \`${before}\``;
+      return code === 'ValueExpected' ? 'a value is missing' : 'a property name must be in double quotes';
     }
-    if (i >= n) return state === Json.End ? null : n;
-    const c = text.charCodeAt(i);
-    switch (state) {
-      case Json.End:
-        return i;
-      case Json.Colon:
-        if (c !== 0x3a) return i;
-        i++;
-        state = Json.Value;
-        continue;
-      case Json.AfterMember:
-      case Json.AfterElement: {
-        const close = state === Json.AfterMember ? 0x7d : 0x5d;
-        if (c === 0x2c) { i++; state = state === Json.AfterMember ? Json.Key : Json.Value; continue; }
-        if (c !== close) return i;
-        i++;
-        open.pop();
-        state = afterValue();
-        continue;
-      }
-      case Json.FirstKey:
-      case Json.Key: {
-        if (c === 0x7d && state === Json.FirstKey) { i++; open.pop(); state = afterValue(); continue; }
-        if (c !== 0x22) return i;
-        const end = stringEnd(text, i);
-        if (end < 0) return -end - 1;
-        i = end;
-        state = Json.Colon;
-        continue;
-      }
-      case Json.FirstElement:
-        if (c === 0x5d) { i++; open.pop(); state = afterValue(); continue; }
-        state = Json.Value;
-        continue;
-      case Json.Value: {
-        if (c === 0x7b) { i++; open.push(true); state = Json.FirstKey; continue; }
-        if (c === 0x5b) { i++; open.push(false); state = Json.FirstElement; continue; }
-        let end: number;
-        if (c === 0x22) end = stringEnd(text, i);
-        else if (c === 0x2d || (c >= 0x30 && c <= 0x39)) end = numberEnd(text, i);
-        else end = literalEnd(text, i);
-        if (end < 0) return -end - 1;
-        i = end;
-        state = afterValue();
-        continue;
-      }
-    }
+    case 'ColonExpected':
+      return 'a colon (`:`) is missing after the property name';
+    case 'CommaExpected':
+      // `01` reads as the number 0 and then another number.
+      if (/^[0-9]/.test(found) && json[offset - 1] === '0') return 'a number cannot start with 0 followed by more digits';
+      if (found === ']') return 'a comma or `}` is expected here, not `]`';
+      if (found === '}') return 'a comma or `]` is expected here, not `}`';
+      return 'a comma is missing';
+    case 'CloseBraceExpected':
+      return 'a closing `}` is missing';
+    case 'CloseBracketExpected':
+      return 'a closing `]` is missing';
+    case 'EndOfFileExpected':
+      return MORE_AFTER_THE_END;
+    case 'UnexpectedEndOfString':
+      return 'a string is not closed: its closing `"` is missing before the end of the line';
+    case 'UnexpectedEndOfNumber':
+      return 'a number is cut short: a digit must follow `.` or `e`';
+    case 'InvalidNumberFormat':
+      return 'a number is not written as JSON writes numbers';
+    case 'InvalidUnicode':
+      return 'a `\\u` escape needs four hexadecimal digits, such as `\\u00e9`';
+    case 'InvalidEscapeCharacter':
+      return 'a backslash in a string must be written `\\\\` or start an escape such as `\\n`';
+    case 'InvalidCharacter':
+      return 'a string holds a control character such as a tab; write it as an escape such as `\\t`';
+    case 'InvalidSymbol':
+      return invalidSymbolInWords(json, offset, found);
+    default:
+      return 'this is not JSON';
   }
 }
 
-/** The end of the string starting at `at` (a `"`), or -(offset of the error) - 1. */
-function stringEnd(text: string, at: number): number {
-  let i = at + 1;
-  while (i < text.length) {
-    const c = text.charCodeAt(i);
-    if (c === 0x22) return i + 1;
-    if (c < 0x20) return -i - 1;
-    if (c === 0x5c) {
-      const e = text.charCodeAt(i + 1);
-      if (e === 0x75) {
-        for (let k = 2; k < 6; k++) if (!isHexDigit(text.charCodeAt(i + k))) return -Math.min(i + k, text.length) - 1;
-        i += 6;
-        continue;
-      }
-      if (e !== 0x22 && e !== 0x5c && e !== 0x2f && e !== 0x62 && e !== 0x66 && e !== 0x6e && e !== 0x72 && e !== 0x74) return -Math.min(i + 1, text.length) - 1;
-      i += 2;
-      continue;
-    }
-    i++;
-  }
-  return -text.length - 1;
-}
+const MORE_AFTER_THE_END = 'there is more after the end of the JSON value';
 
-/** The end of the number starting at `at`, or -(offset of the error) - 1. */
-function numberEnd(text: string, at: number): number {
-  let i = at;
-  if (text.charCodeAt(i) === 0x2d) i++;
-  if (text.charCodeAt(i) === 0x30) i++;
-  else if (isDigitCode(text.charCodeAt(i))) while (isDigitCode(text.charCodeAt(i))) i++;
-  else return -Math.min(i, text.length) - 1;
-  if (text.charCodeAt(i) === 0x2e) {
-    i++;
-    if (!isDigitCode(text.charCodeAt(i))) return -Math.min(i, text.length) - 1;
-    while (isDigitCode(text.charCodeAt(i))) i++;
-  }
-  if ((text.charCodeAt(i) | 0x20) === 0x65) {
-    i++;
-    if (text.charCodeAt(i) === 0x2b || text.charCodeAt(i) === 0x2d) i++;
-    if (!isDigitCode(text.charCodeAt(i))) return -Math.min(i, text.length) - 1;
-    while (isDigitCode(text.charCodeAt(i))) i++;
-  }
-  return i;
-}
+/** What is missing when the text ends where jsonc-parser expected more. */
+const MISSING_AT_END: Partial<Record<ReturnType<typeof printParseErrorCode>, string>> = {
+  ValueExpected: 'a value',
+  PropertyNameExpected: 'a property name',
+  ColonExpected: 'a colon (`:`)',
+  CloseBraceExpected: 'a closing `}`',
+  CloseBracketExpected: 'a closing `]`',
+};
 
-/** The end of `true`, `false` or `null` at `at`, or -(offset of the first wrong character) - 1. */
-function literalEnd(text: string, at: number): number {
-  const word = text.charCodeAt(at) === 0x74 ? 'true' : text.charCodeAt(at) === 0x66 ? 'false' : text.charCodeAt(at) === 0x6e ? 'null' : '';
-  if (!word) return -at - 1;
-  for (let k = 1; k < word.length; k++) if (text.charCodeAt(at + k) !== word.charCodeAt(k)) return -Math.min(at + k, text.length) - 1;
-  return at + word.length;
-}
-
-function isDigitCode(c: number): boolean {
-  return c >= 0x30 && c <= 0x39;
-}
-
-function isHexDigit(c: number): boolean {
-  return (c >= 0x30 && c <= 0x39) || ((c | 0x20) >= 0x61 && (c | 0x20) <= 0x66);
+/** Text that is no JSON token: an unquoted word, a single-quoted string, a number JSON does not write, a stray character. */
+function invalidSymbolInWords(json: string, offset: number, found: string): string {
+  const location = getLocation(json, offset);
+  // At the top level, after a value: jsonc-parser skips the symbol without saying the value had ended.
+  if (location.path.length === 0 && json.slice(0, offset).trim() !== '') return MORE_AFTER_THE_END;
+  const atKey = location.isAtPropertyKey;
+  if (found.startsWith("'")) return atKey ? 'a property name must be in double quotes, not single quotes' : 'text must be in double quotes, not single quotes';
+  if (atKey) return 'a property name must be in double quotes';
+  if (/^(true|false|null)$/i.test(found)) return 'true, false and null are written in lower case';
+  const shown = found.length > 24 ? `${found.slice(0, 24)}…` : found;
+  if (/^[A-Za-z_]/.test(found)) return `\`${shown}\` is not a value: text must be in double quotes, and the only words without them are true, false and null`;
+  if (/^[-+.0-9]/.test(found)) return `\`${shown}\` is not a number as JSON writes them (such as 7, -0.5 or 2e3)`;
+  const c = found.codePointAt(0) ?? 0;
+  return c > 0x20 && c < 0x7f ? `\`${shown}\` has no place here` : `an unexpected character (U+${c.toString(16).toUpperCase().padStart(4, '0')})`;
 }
 
 function rangeOfOffsets(text: string, start: number, end: number): Range {
