@@ -6,6 +6,8 @@ import { CHECKS, docAnchor } from '../server/src/core/checks/registry';
 import { FIELD_TABLE_START, renderFieldTable, replaceBetween, withGeneratedTables } from '../server/src/core/fields/docs';
 import { FIELDS } from '../server/src/core/fields/registry';
 import { UNITS } from '../server/src/core/fields/units';
+import { checkNote } from '../server/src/core/check-note';
+import { formatNote } from '../server/src/core/service';
 import { COLUMNS_END, COLUMNS_START, renderColumnTable } from '../server/src/core/export/docs';
 
 describe('check documentation', () => {
@@ -27,6 +29,15 @@ describe('check documentation', () => {
       expect(table, spelling).toContain(`\`${spelling.toLowerCase()}\``);
     }
     for (const f of FIELDS) for (const word of Object.keys(f.words ?? {})) expect(table, word).toMatch(new RegExp(`(?:[:,]|\\(or) ${word}[,) |]`));
+  });
+
+  it('the example note of grammar/README.md reads without a syntax, key or unit finding, and is in the formatter\'s layout', () => {
+    const doc = readFileSync('grammar/README.md', 'utf8');
+    const example = /```pneu\n([\s\S]*?)```/.exec(doc)?.[1];
+    expect(example).toBeDefined();
+    const findings = checkNote(example!).findings;
+    expect(findings.filter((f) => f.code < 'PN300' || f.severity === 'error').map((f) => `${f.code} ${f.message}`)).toEqual([]);
+    expect(formatNote(example!)).toBe(example);
   });
 
   it('README.md carries the current list of export columns', () => {
