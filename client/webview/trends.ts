@@ -1,11 +1,14 @@
 /**
  * The trend view's page: small multiples drawn with uPlot (bundled, no network), coloured from
- * the editor theme's chart colours, redrawn on each message from the extension. Clicking a chart
- * moves the editor to the timepoint under the cursor.
+ * the editor theme's chart colours, redrawn on each message from the extension. What each panel
+ * holds, its axis labels and legend texts come from panels.ts; values are drawn in the units the
+ * server gives them in (gas pressures in the note's unit, mmHg or kPa). Clicking a chart moves
+ * the editor to the timepoint under the cursor.
  */
 import uPlot from 'uplot';
-import type { TrendPoint, TrendSeries } from '../../server/src/protocol';
+import type { TrendPoint } from '../../server/src/protocol';
 import type { FromWebview, ToWebview } from './messages';
+import { legendText, panelLayouts } from './panels';
 
 interface VsCodeApi {
   postMessage(message: FromWebview): void;
@@ -13,43 +16,6 @@ interface VsCodeApi {
 declare function acquireVsCodeApi(): VsCodeApi;
 
 const vscode = acquireVsCodeApi();
-
-interface SeriesSpec {
-  readonly key: TrendSeries;
-  readonly label: string;
-  readonly unit: string;
-  readonly colour: string;
-  /** Axis: 0 left, 1 right. */
-  readonly axis: 0 | 1;
-  readonly scale?: (v: number) => number;
-}
-
-interface PanelSpec {
-  readonly title: string;
-  readonly series: readonly SeriesSpec[];
-  readonly leftUnit: string;
-  readonly rightUnit?: string;
-}
-
-const PANELS: readonly PanelSpec[] = [
-  { title: 'Oxygenation', leftUnit: 'mmHg', series: [
-    { key: 'pao2', label: 'PaO2', unit: 'mmHg', colour: 'blue', axis: 0 },
-    { key: 'pf_ratio', label: 'P/F', unit: 'mmHg', colour: 'purple', axis: 0 },
-  ] },
-  { title: 'Carbon dioxide and pH', leftUnit: 'mmHg', rightUnit: 'pH', series: [
-    { key: 'paco2', label: 'PaCO2', unit: 'mmHg', colour: 'orange', axis: 0 },
-    { key: 'ph', label: 'pH', unit: '', colour: 'green', axis: 1 },
-  ] },
-  { title: 'Saturation and FiO2', leftUnit: '%', series: [
-    { key: 'spo2', label: 'SpO2', unit: '%', colour: 'blue', axis: 0 },
-    { key: 'fio2', label: 'FiO2', unit: '%', colour: 'red', axis: 0, scale: (v) => v * 100 },
-  ] },
-  { title: 'Ventilator', leftUnit: 'cmH2O', rightUnit: 'mL/cmH2O', series: [
-    { key: 'peep', label: 'PEEP', unit: 'cmH2O', colour: 'yellow', axis: 0 },
-    { key: 'driving_pressure', label: 'ΔP', unit: 'cmH2O', colour: 'red', axis: 0 },
-    { key: 'compliance_static', label: 'Cstat', unit: 'mL/cmH2O', colour: 'green', axis: 1 },
-  ] },
-];
 
 const charts: uPlot[] = [];
 let points: readonly TrendPoint[] = [];
@@ -93,42 +59,37 @@ function render(list: readonly TrendPoint[], note: string): void {
   const grid = cssVar('--vscode-editorWidget-border', cssVar('--vscode-panel-border', 'rgba(128,128,128,0.3)'));
   const hc = highContrast();
   const width = Math.max(280, main.clientWidth - 8);
-  for (const panel of PANELS) {
-    const present = panel.series.filter((s) => list.some((p) => p.values[s.key] !== undefined));
-    if (present.length === 0) continue;
+  for (const panel of panelLayouts(list)) {
     const section = document.createElement('section');
     section.className = 'panel';
-    section.setAttribute('aria-label', panel.title);
+    section.setAttribute('aria-label', panel.name);
     const h = document.createElement('h2');
     h.textContent = panel.title;
     section.append(h);
     main.append(section);
-    const data: uPlot.AlignedData = [xs, ...present.map((s) => list.map((p) => {
-      const v = p.values[s.key];
-      return v === undefined ? null : (s.scale ? s.scale(v) : v);
-    }))];
+    const data: uPlot.AlignedData = [xs, ...panel.columns];
     const axisStyle = { stroke: fg, grid: { stroke: grid, width: 1 }, ticks: { stroke: grid, width: 1 } };
     const opts: uPlot.Options = {
       width,
       height: 170,
       cursor: { points: { size: hc ? 10 : 7 } },
       legend: { live: true },
-      scales: { x: { time: false }, y: {}, ...(panel.rightUnit ? { r: {} } : {}) },
+      scales: { x: { time: false }, y: {}, ...(panel.rightLabel !== null ? { r: {} } : {}) },
       axes: [
         { ...axisStyle, label: hours ? 'hours since day 1 00:00' : 'timepoint' },
-        { ...axisStyle, label: panel.leftUnit, scale: 'y' },
-        ...(panel.rightUnit ? [{ ...axisStyle, label: panel.rightUnit, scale: 'r', side: 1 as const, grid: { show: false } }] : []),
+        { ...axisStyle, label: panel.leftLabel, scale: 'y' },
+        ...(panel.rightLabel !== null ? [{ ...axisStyle, label: panel.rightLabel, scale: 'r', side: 1 as const, grid: { show: false } }] : []),
       ],
       series: [
         { label: hours ? 'hour' : '#', value: (_u, v) => (v === null ? '—' : labelAt(v, xs)) },
-        ...present.map((s) => ({
+        ...panel.series.map((s) => ({
           label: s.label,
           scale: s.axis === 1 ? 'r' : 'y',
           stroke: themeColour(s.colour, '#3794ff'),
           width: hc ? 3 : 2,
           spanGaps: true,
           points: { show: true, size: hc ? 8 : 5, fill: themeColour(s.colour, '#3794ff') },
-          value: (_u: uPlot, v: number | null) => (v === null ? '—' : `${formatValue(v, s)}${s.unit ? ` ${s.unit}` : ''}`),
+          value: (_u: uPlot, v: number | null) => legendText(v, s.unit),
         })),
       ],
     };
@@ -141,11 +102,6 @@ function render(list: readonly TrendPoint[], note: string): void {
     });
     charts.push(chart);
   }
-}
-
-function formatValue(v: number, s: SeriesSpec): string {
-  if (s.key === 'ph') return v.toFixed(2);
-  return Number.isInteger(v) ? String(v) : v.toFixed(1);
 }
 
 function labelAt(x: number, xs: readonly number[]): string {

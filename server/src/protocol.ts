@@ -14,6 +14,18 @@ export interface TrendsParams {
 export const TREND_SERIES = ['pao2', 'paco2', 'ph', 'pf_ratio', 'spo2', 'fio2', 'peep', 'driving_pressure', 'compliance_static'] as const;
 export type TrendSeries = (typeof TREND_SERIES)[number];
 
+/**
+ * Units of plotted values. Gas pressures (PaO2, PaCO2) and P/F are in one unit for the whole note,
+ * mmHg or kPa: the unit the note writes its gases in (most of them; a tie goes to the last).
+ */
+export type TrendUnit = 'mmHg' | 'kPa' | 'pH' | '%' | 'cmH2O' | 'mL/cmH2O';
+
+/** A plotted value in its unit, ready to draw: the view converts nothing. */
+export interface TrendValue {
+  readonly value: number;
+  readonly unit: TrendUnit;
+}
+
 export interface TrendPoint {
   readonly timepoint: number;
   readonly label: string;
@@ -21,8 +33,8 @@ export interface TrendPoint {
   readonly line: number;
   /** Minutes since day 1 00:00, when known. */
   readonly minutes: number | null;
-  /** Values by series, in mmHg / cmH2O / mL per cmH2O / fraction / %; absent when not known. */
-  readonly values: Partial<Record<TrendSeries, number>>;
+  /** Values by series, each with its unit (FiO2 as a percentage, like SpO2); absent when not known. */
+  readonly values: Partial<Record<TrendSeries, TrendValue>>;
   /** Series whose value used a carried-forward input. */
   readonly carried: readonly TrendSeries[];
 }

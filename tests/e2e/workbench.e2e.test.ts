@@ -1,6 +1,7 @@
 // The extension in a real VS Code workbench (code-server) in a real browser (headless Chromium).
 // Every assertion reads the page itself; screenshots go to test-output/e2e/.
 import { join } from 'node:path';
+import type { Frame } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { focusEditorArea, goTo, openFile, runCommand, screenshot, setTheme, startWorkbench, type Workbench } from './harness';
 
@@ -96,6 +97,8 @@ describe('Pneumark in VS Code', () => {
     expect((await texts('#title')).join()).toMatch(/icu-ventilated-lung-injury\.pneu/);
     const legend = (await texts('.u-legend .u-label')).join(' ');
     for (const series of ['PaO2', 'P/F', 'PaCO2', 'pH', 'SpO2', 'FiO2', 'PEEP', 'ΔP', 'Cstat']) expect(legend).toContain(series);
+    // The panels name the units of their axes (drawn on the canvas): this note's gases are in mmHg.
+    expect(await panelNames()).toEqual(expect.arrayContaining(['Oxygenation (mmHg)', 'Carbon dioxide and pH (mmHg, pH)', 'Saturation and FiO2 (%)']));
     await screenshot(wb.page, '06-trends-dark');
   });
 
@@ -110,4 +113,32 @@ describe('Pneumark in VS Code', () => {
       await screenshot(wb.page, name);
     }
   });
+
+  it('plots the gases of a kPa note in kPa, on the axes and in the legend', async () => {
+    await openFile(wb.page, 'home-oxygen-exacerbation.pneu');
+    await runCommand(wb.page, 'Pneumark: Show Trends');
+    await expect.poll(panelNames, { timeout: 60000 }).toContain('Oxygenation (kPa)');
+    expect(await panelNames()).toContain('Carbon dioxide and pH (kPa, pH)');
+    // Under the cursor the legend gives each value with its unit: PaO2 and P/F in kPa.
+    const frame = await frameWith('section.panel[aria-label="Oxygenation (kPa)"]');
+    const oxygenation = frame.locator('section.panel[aria-label="Oxygenation (kPa)"]');
+    await oxygenation.locator('.u-over').hover();
+    await expect.poll(async () => (await oxygenation.locator('.u-legend .u-value').allTextContents()).join(' '), { timeout: 20000 }).toMatch(/\d+(\.\d)? kPa \d+(\.\d)? kPa$/);
+    await screenshot(wb.page, '10-trends-kpa');
+  });
 });
+
+/** The accessible names of the trend view's panels (title and axis units), in every frame. */
+async function panelNames(): Promise<string[]> {
+  const out: string[] = [];
+  for (const frame of wb.page.frames()) {
+    for (const panel of await frame.locator('section.panel').all().catch(() => [])) out.push((await panel.getAttribute('aria-label').catch(() => null)) ?? '');
+  }
+  return out;
+}
+
+/** The frame that holds an element (the trend view's page is a frame in a frame). */
+async function frameWith(selector: string): Promise<Frame> {
+  for (const frame of wb.page.frames()) if (await frame.locator(selector).count().catch(() => 0) > 0) return frame;
+  throw new Error(`no frame holds ${selector}`);
+}

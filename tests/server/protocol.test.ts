@@ -137,6 +137,13 @@ describe('language features', () => {
     const resolved = await client.connection.sendRequest<InlayHint>('inlayHint/resolve', pf);
     const tooltip = typeof resolved.tooltip === 'object' ? resolved.tooltip.value : resolved.tooltip;
     expect(tooltip).toContain('With the numbers: `7.9 ÷ 0.28 = 28.2 kPa (212 mmHg)`');
+    // The trend view's data: the same gases in kPa, each value with its unit.
+    const trends = await client.connection.sendRequest<{ points: { values: Record<string, { value: number; unit: string }> }[] }>('pneumark/trends', { uri: doc });
+    const titrated = trends.points[1]?.values;
+    expect(titrated?.pao2).toEqual({ value: expect.closeTo(7.9, 6), unit: 'kPa' });
+    expect(titrated?.pf_ratio?.unit).toBe('kPa');
+    expect(titrated?.pf_ratio?.value.toFixed(1)).toBe('28.2');
+    expect(titrated?.fio2).toEqual({ value: expect.closeTo(28, 6), unit: '%' });
   });
 
   it('completes sections at the start of a line and keys after a section', async () => {
@@ -180,9 +187,10 @@ describe('language features', () => {
   });
 
   it('answers the trend and summary requests, and unit conversion edits', async () => {
-    const trends = await client.connection.sendRequest<{ points: { values: Record<string, number> }[] }>('pneumark/trends', { uri });
+    const trends = await client.connection.sendRequest<{ points: { values: Record<string, { value: number; unit: string }> }[] }>('pneumark/trends', { uri });
     expect(trends.points.length).toBe(4);
-    expect(trends.points[0]?.values.pf_ratio).toBeCloseTo(92.5, 1);
+    expect(trends.points[0]?.values.pf_ratio?.value).toBeCloseTo(92.5, 1);
+    expect(trends.points[0]?.values.pf_ratio?.unit).toBe('mmHg');
     const summary = await client.connection.sendRequest<{ text: string }>('pneumark/timepointSummary', { uri, line: 8 });
     expect(summary.text).toMatch(/P\/F 93/);
     const edits = await client.connection.sendRequest<TextEdit[]>('pneumark/convertUnits', { uri, to: 'kPa' });

@@ -1,63 +1,169 @@
 /**
  * Series over time for a trend view and a status line: per timepoint, the stated and derived
- * values worth plotting, and which of them used a carried-forward input.
+ * values worth plotting, each with its unit, and which of them used a carried-forward input.
+ *
+ * Values carry their unit so that a view plots them as given and does no conversion of its own:
+ * gas pressures (PaO2, PaCO2) and P/F in the unit the note writes its gases in (`trendGasUnit`),
+ * FiO2 as a percentage beside SpO2, airway pressures in cmH2O, compliance in mL/cmH2O.
  */
-import type { Timepoint } from './analysis/model';
+import type { StatedValue, Timepoint } from './analysis/model';
 import type { NoteResult } from './check-note';
 import type { TimepointDerivation } from './derive/model';
 import { derivedValueOf } from './derive/registry';
-import { kpaFirstCompact, showsKpa, statedInKpa } from './present';
+import { percentFromFraction } from './physiology/units';
+import { kpaFirstCompact, kpaFromMmhg, showsKpa, statedInKpa } from './present';
 import { formatNumber } from './util/format';
 
 export const TREND_FIELDS = ['pao2', 'paco2', 'ph', 'spo2', 'fio2', 'peep'] as const;
 export const TREND_DERIVED = ['pf_ratio', 'driving_pressure', 'compliance_static'] as const;
 export type TrendKey = (typeof TREND_FIELDS)[number] | (typeof TREND_DERIVED)[number];
 
+/** The gas pressures whose units decide the unit of a trend's gas pressures (see `trendGasUnit`). */
+const GAS_FIELDS = ['pao2', 'paco2'] as const;
+
+export type TrendGasUnit = Timepoint['gasUnit'];
+export type TrendUnit = TrendGasUnit | 'pH' | '%' | 'cmH2O' | 'mL/cmH2O';
+
+/** A plotted value in the unit it is plotted in. */
+export interface TrendValue {
+  readonly value: number;
+  readonly unit: TrendUnit;
+}
+
 export interface TrendPointData {
   readonly timepoint: number;
   readonly label: string;
   readonly line: number;
   readonly minutes: number | null;
-  readonly values: Partial<Record<TrendKey, number>>;
+  readonly values: Partial<Record<TrendKey, TrendValue>>;
   readonly carried: TrendKey[];
 }
 
 /**
- * The points of a timepoint, kept per timepoint object: a trend view refreshes after every edit,
- * and an edit keeps the timepoints it does not touch (they are immutable, and a change of
- * settings makes new ones), so only the changed timepoints are derived again.
+ * The points of a timepoint, kept per timepoint object and gas unit: a trend view refreshes after
+ * every edit, and an edit keeps the timepoints it does not touch (they are immutable, and a change
+ * of settings makes new ones), so only the changed timepoints are derived again — and all of them
+ * the first time the note's gases go over to the other unit, which few edits do.
  */
-const pointsByTimepoint = new WeakMap<Timepoint, TrendPointData>();
+const pointsByTimepoint: Readonly<Record<TrendGasUnit, WeakMap<Timepoint, TrendPointData>>> = { mmHg: new WeakMap(), kPa: new WeakMap() };
 
 export function trendPoints(result: NoteResult): TrendPointData[] {
   const { timeline } = result.analysis;
+  const gasUnit = trendGasUnit(result);
+  const kept = pointsByTimepoint[gasUnit];
   return timeline.timepoints.map((tp, i) => {
-    const known = pointsByTimepoint.get(tp);
+    const known = kept.get(tp);
     if (known) return known;
-    const point = trendPoint(tp, result.analysis.derivation(i));
-    pointsByTimepoint.set(tp, point);
+    const point = trendPoint(tp, result.analysis.derivation(i), gasUnit);
+    kept.set(tp, point);
     return point;
   });
 }
 
-function trendPoint(tp: Timepoint, derivation: TimepointDerivation): TrendPointData {
-  const values: Partial<Record<TrendKey, number>> = {};
+/**
+ * The unit a trend gives gas pressures and P/F in: the unit the note writes its gases in. Each
+ * PaO2 and PaCO2 the trend plots counts for the unit it was read in (the unit written after it,
+ * else the gas unit in force: `units gas` or the gasUnit setting); the unit of most of them wins,
+ * and a tie goes to the unit of the one written last. A note without a gas to plot gives the gas
+ * unit in force at its last timepoint, or its header's. One unit for the whole note, so that one
+ * axis holds every point.
+ */
+export function trendGasUnit(result: NoteResult): TrendGasUnit {
+  const { timepoints, headerGasUnit } = result.analysis.timeline;
+  let kpa = 0;
+  let mmhg = 0;
+  let last: TrendGasUnit | null = null;
+  for (const tp of timepoints) {
+    const gases = gasesOf(tp);
+    kpa += gases.kpa;
+    mmhg += gases.mmhg;
+    last = gases.last ?? last;
+  }
+  if (kpa !== mmhg) return kpa > mmhg ? 'kPa' : 'mmHg';
+  return last ?? timepoints.at(-1)?.gasUnit ?? headerGasUnit;
+}
+
+/** The units a timepoint's plotted gas pressures were read in: how many in each, and the unit of the one written last. */
+interface GasesRead {
+  readonly kpa: number;
+  readonly mmhg: number;
+  readonly last: TrendGasUnit | null;
+}
+
+const NO_GASES: GasesRead = Object.freeze({ kpa: 0, mmhg: 0, last: null });
+
+/** Kept per timepoint object, as the points are: a refresh after an edit reads only the changed timepoints again. */
+const gasesByTimepoint = new WeakMap<Timepoint, GasesRead>();
+
+function gasesOf(tp: Timepoint): GasesRead {
+  const known = gasesByTimepoint.get(tp);
+  if (known) return known;
+  let kpa = 0;
+  let mmhg = 0;
+  let last: StatedValue | null = null;
+  for (const id of GAS_FIELDS) {
+    const v = tp.values.get(id);
+    if (!v || plottedNumber(v.stated) === null) continue;
+    const unit = v.stated.readUnit;
+    if (unit === 'kPa') kpa++;
+    else if (unit === 'mmHg') mmhg++;
+    else continue;
+    if (!last || v.stated.line > last.line || (v.stated.line === last.line && v.stated.item.span.start > last.item.span.start)) last = v.stated;
+  }
+  const gases: GasesRead = last ? { kpa, mmhg, last: last.readUnit === 'kPa' ? 'kPa' : 'mmHg' } : NO_GASES;
+  gasesByTimepoint.set(tp, gases);
+  return gases;
+}
+
+/** The number of a stated value a trend plots: usable, with a number; else null. */
+function plottedNumber(s: StatedValue): number | null {
+  return s.usable ? s.value : null;
+}
+
+function trendPoint(tp: Timepoint, derivation: TimepointDerivation, gasUnit: TrendGasUnit): TrendPointData {
+  const values: Partial<Record<TrendKey, TrendValue>> = {};
   const carried: TrendKey[] = [];
   for (const id of TREND_FIELDS) {
     const v = tp.values.get(id);
     // Measurements are plotted where stated; settings (FiO2, PEEP) also where carried.
-    if (!v || !v.stated.usable || v.stated.value === null) continue;
-    values[id] = v.stated.value;
+    const number = v ? plottedNumber(v.stated) : null;
+    if (!v || number === null) continue;
+    const shown = inTrendUnit(number, v.stated.unit, gasUnit);
+    if (!shown) continue;
+    values[id] = shown;
     if (v.origin.kind === 'carried' || v.origin.kind === 'header') carried.push(id);
   }
   for (const id of TREND_DERIVED) {
     // Only the plotted values are derived (see derivedValueOf).
     const d = derivedValueOf(derivation, id);
     if (!d) continue;
-    values[id] = d.value;
+    const shown = inTrendUnit(d.value, d.unit, gasUnit);
+    if (!shown) continue;
+    values[id] = shown;
     if (d.usesCarried) carried.push(id);
   }
   return { timepoint: tp.index, label: tp.label, line: tp.line ?? tp.startLine, minutes: tp.time.minutes, values, carried };
+}
+
+/**
+ * A value in the core's unit (`unit`: mmHg, a fraction, ...) as a trend plots it: a gas pressure
+ * (and P/F, mmHg per fraction) in `gasUnit`, converted as hints and hovers convert it
+ * (`kpaFromMmhg`, so that the numbers agree); a fraction as a percentage. Null for a unit a trend
+ * does not plot.
+ */
+function inTrendUnit(value: number, unit: string | null, gasUnit: TrendGasUnit): TrendValue | null {
+  switch (unit) {
+    case 'mmHg': return gasUnit === 'kPa' ? { value: kpaFromMmhg(value), unit: 'kPa' } : { value, unit: 'mmHg' };
+    case 'fraction': {
+      const percent = percentFromFraction(value);
+      return percent === null ? null : { value: percent, unit: '%' };
+    }
+    case '%sat': return { value, unit: '%' };
+    case 'ph': return { value, unit: 'pH' };
+    case 'cmH2O': return { value, unit: 'cmH2O' };
+    case 'mL/cmH2O': return { value, unit: 'mL/cmH2O' };
+    default: return null;
+  }
 }
 
 /**

@@ -1,0 +1,103 @@
+/**
+ * What the trend view draws, worked out from the points apart from the page (no DOM, no chart
+ * library, so it is tested on its own): the panels and series that have values, the unit of each
+ * series and the label of each axis, the columns to plot and a value's text in the legend.
+ *
+ * The points carry each value with its unit (gas pressures and P/F in the unit the note writes its
+ * gases in, mmHg or kPa; FiO2 as a percentage): nothing here converts a value.
+ */
+import type { TrendPoint, TrendSeries, TrendUnit } from '../../server/src/protocol';
+
+export interface SeriesSpec {
+  readonly key: TrendSeries;
+  readonly label: string;
+  /** A name of the editor theme's chart colours (`--vscode-charts-<colour>`). */
+  readonly colour: string;
+  /** Axis: 0 left, 1 right. */
+  readonly axis: 0 | 1;
+}
+
+export interface PanelSpec {
+  readonly title: string;
+  readonly series: readonly SeriesSpec[];
+}
+
+export const PANELS: readonly PanelSpec[] = [
+  { title: 'Oxygenation', series: [
+    { key: 'pao2', label: 'PaO2', colour: 'blue', axis: 0 },
+    { key: 'pf_ratio', label: 'P/F', colour: 'purple', axis: 0 },
+  ] },
+  { title: 'Carbon dioxide and pH', series: [
+    { key: 'paco2', label: 'PaCO2', colour: 'orange', axis: 0 },
+    { key: 'ph', label: 'pH', colour: 'green', axis: 1 },
+  ] },
+  { title: 'Saturation and FiO2', series: [
+    { key: 'spo2', label: 'SpO2', colour: 'blue', axis: 0 },
+    { key: 'fio2', label: 'FiO2', colour: 'red', axis: 0 },
+  ] },
+  { title: 'Ventilator', series: [
+    { key: 'peep', label: 'PEEP', colour: 'yellow', axis: 0 },
+    { key: 'driving_pressure', label: 'ΔP', colour: 'red', axis: 0 },
+    { key: 'compliance_static', label: 'Cstat', colour: 'green', axis: 1 },
+  ] },
+];
+
+/** A series with values, and the unit they are in. */
+export interface PlottedSeries extends SeriesSpec {
+  readonly unit: TrendUnit;
+}
+
+export interface PanelLayout {
+  readonly title: string;
+  /** The title with the units of its axes, for screen readers (the axes are drawn, not text): `Oxygenation (kPa)`. */
+  readonly name: string;
+  readonly series: readonly PlottedSeries[];
+  /** The left axis's label: the units of the series on it (`kPa`, `%`); empty when none is. */
+  readonly leftLabel: string;
+  /** The right axis's label, or null when no series with values is on it (then there is no right axis). */
+  readonly rightLabel: string | null;
+  /** One column per series, in the order of `series`: its value at each point, or null. */
+  readonly columns: readonly (number | null)[][];
+}
+
+/** The panels that have values at some point, in the order of PANELS. */
+export function panelLayouts(points: readonly TrendPoint[]): PanelLayout[] {
+  const layouts: PanelLayout[] = [];
+  for (const panel of PANELS) {
+    const series: PlottedSeries[] = [];
+    for (const s of panel.series) {
+      // The server gives a series in one unit at every point (gas pressures in the note's unit).
+      const unit = points.find((p) => p.values[s.key] !== undefined)?.values[s.key]?.unit;
+      if (unit !== undefined) series.push({ ...s, unit });
+    }
+    if (series.length === 0) continue;
+    const leftLabel = axisLabel(series, 0);
+    const rightLabel = series.some((s) => s.axis === 1) ? axisLabel(series, 1) : null;
+    const units = [leftLabel, rightLabel ?? ''].filter((label) => label !== '');
+    layouts.push({
+      title: panel.title,
+      name: `${panel.title} (${units.join(', ')})`,
+      series,
+      leftLabel,
+      rightLabel,
+      columns: series.map((s) => points.map((p) => p.values[s.key]?.value ?? null)),
+    });
+  }
+  return layouts;
+}
+
+/** The units of the series on an axis, each once: `kPa` for PaO2 and P/F of a kPa note. */
+function axisLabel(series: readonly PlottedSeries[], axis: 0 | 1): string {
+  return [...new Set(series.filter((s) => s.axis === axis).map((s) => s.unit))].join(' · ');
+}
+
+/**
+ * A value as the legend shows it, to one decimal at most: `9.4 kPa`, `211.6 mmHg`, `28 %` (a
+ * percentage worked out from a fraction may be 28.000000000000004); pH with two decimals and no
+ * unit (`7.31`); `—` for none.
+ */
+export function legendText(v: number | null, unit: TrendUnit): string {
+  if (v === null) return '—';
+  if (unit === 'pH') return v.toFixed(2);
+  return `${String(Number(v.toFixed(1)))} ${unit}`;
+}

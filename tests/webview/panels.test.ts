@@ -1,0 +1,47 @@
+// The trend view's panels: which series each draws, the units on its axes and in its legend, as
+// the points give them (the page converts nothing). Points are written by hand here; what the
+// core gives for a note is tested in tests/core/trends.test.ts.
+import { describe, expect, it } from 'vitest';
+import { legendText, panelLayouts } from '../../client/webview/panels';
+import type { TrendPoint } from '../../server/src/protocol';
+
+function point(values: TrendPoint['values'], line = 0): TrendPoint {
+  return { timepoint: line, label: `line ${line + 1}`, line, minutes: null, values, carried: [] };
+}
+
+// A kPa note's gases: PaO2 7.9 and 8.3 kPa on FiO2 28 and 30 %, P/F 28.2 and 27.7 kPa (PaO2 ÷ FiO2).
+const kpaPoints = [
+  point({ pao2: { value: 7.9, unit: 'kPa' }, paco2: { value: 9.1, unit: 'kPa' }, ph: { value: 7.28, unit: 'pH' }, pf_ratio: { value: 28.21, unit: 'kPa' }, fio2: { value: 28, unit: '%' } }, 2),
+  point({ pao2: { value: 8.3, unit: 'kPa' }, paco2: { value: 7.9, unit: 'kPa' }, ph: { value: 7.34, unit: 'pH' }, pf_ratio: { value: 27.67, unit: 'kPa' }, fio2: { value: 30, unit: '%' } }, 6),
+];
+
+describe('trend panels', () => {
+  it('label the gas axes with the unit the points are in: kPa in a kPa note', () => {
+    const [oxygenation, carbonDioxide, saturation] = panelLayouts(kpaPoints);
+    expect(oxygenation).toMatchObject({ title: 'Oxygenation', name: 'Oxygenation (kPa)', leftLabel: 'kPa', rightLabel: null });
+    expect(oxygenation?.series.map((s) => [s.label, s.unit])).toEqual([['PaO2', 'kPa'], ['P/F', 'kPa']]);
+    expect(oxygenation?.columns).toEqual([[7.9, 8.3], [28.21, 27.67]]);
+    expect(carbonDioxide).toMatchObject({ name: 'Carbon dioxide and pH (kPa, pH)', leftLabel: 'kPa', rightLabel: 'pH' });
+    // FiO2 comes as a percentage and is drawn as given.
+    expect(saturation).toMatchObject({ leftLabel: '%', columns: [[28, 30]] });
+  });
+
+  it('label them mmHg in an mmHg note, and leave out panels with nothing to draw', () => {
+    const layouts = panelLayouts([point({ pao2: { value: 71, unit: 'mmHg' }, pf_ratio: { value: 177.5, unit: 'mmHg' } }), point({ peep: { value: 8, unit: 'cmH2O' } }, 3)]);
+    expect(layouts.map((l) => [l.title, l.leftLabel, l.rightLabel])).toEqual([['Oxygenation', 'mmHg', null], ['Ventilator', 'cmH2O', null]]);
+    // A point without the series has a gap.
+    expect(layouts[0]?.columns).toEqual([[71, null], [177.5, null]]);
+  });
+
+  it('write legend values with their unit, pH without one', () => {
+    expect(legendText(7.9, 'kPa')).toBe('7.9 kPa');
+    expect(legendText(28.21, 'kPa')).toBe('28.2 kPa');
+    expect(legendText(212, 'mmHg')).toBe('212 mmHg');
+    expect(legendText(7.3, 'pH')).toBe('7.30');
+    expect(legendText(28, '%')).toBe('28 %');
+    // FiO2 0.28 as a percentage in floating point.
+    expect(legendText(0.28 * 100, '%')).toBe('28 %');
+    expect(legendText(211.6, 'mmHg')).toBe('211.6 mmHg');
+    expect(legendText(null, 'kPa')).toBe('—');
+  });
+});
