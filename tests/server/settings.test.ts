@@ -152,6 +152,16 @@ describe('an invalid pneumark.config.json', () => {
     expect(at('{\n "gasUnit":\uFEFF "kPa" }')).toEqual({ line: 1, character: 11 });
   });
 
+  it('counts columns of the first line from after a byte-order mark, as editors show the file', () => {
+    // The same file with and without the mark: the same places, for every kind of problem.
+    for (const text of ['{ "gasUnit": tru }', '{ "gasUnit": "bar" }', '{ "disabledChecks": ["PN 101"] }']) {
+      const plain = parseProjectConfig(text).problems.map((p) => p.range);
+      expect(plain, text).toHaveLength(1);
+      expect(parseProjectConfig(`\uFEFF${text}`).problems.map((p) => p.range), text).toEqual(plain);
+    }
+    expect(at('\uFEFF{ "gasUnit": tru }')).toEqual({ line: 0, character: 13 });
+  });
+
   it('reports nesting too deep to follow on the first line, and takes deep valid nesting as JSON', () => {
     const open = '['.repeat(100000);
     const unclosed = parseProjectConfig(open);

@@ -41,10 +41,13 @@ export interface ParsedConfig {
 
 const WHOLE_FIRST_LINE: Range = { start: { line: 0, character: 0 }, end: { line: 0, character: 1 } };
 
-export function parseProjectConfig(text: string): ParsedConfig {
+export function parseProjectConfig(file: string): ParsedConfig {
+  // A byte-order mark at the start is no part of the text: editors do not show it, so positions
+  // (the editor's ranges, the CLI's columns) count from after it.
+  const text = file.charCodeAt(0) === 0xfeff ? file.slice(1) : file;
   let data: unknown;
   try {
-    data = JSON.parse(text.charCodeAt(0) === 0xfeff ? text.slice(1) : text);
+    data = JSON.parse(text);
   } catch (error) {
     return { settings: {}, hints: {}, problems: [notJsonProblem(text, error)] };
   }
@@ -105,17 +108,16 @@ function rangeOfKey(text: string, key: string): Range {
 /**
  * The problem of a file JSON.parse refused. JSON.parse decides what is JSON (strict JSON: no
  * comments, no trailing commas), so the file reads the same in every tool; jsonc-parser, held to
- * the same rules, says where and what, as Node 20's messages often give no position. Offsets count
- * from after a byte-order mark, as parsed.
+ * the same rules, says where and what, as Node 20's messages often give no position. `text` has
+ * no byte-order mark at its start.
  */
 function notJsonProblem(text: string, error: unknown): ConfigProblem {
-  const bom = text.charCodeAt(0) === 0xfeff ? 1 : 0;
-  const mistake = firstJsonMistake(bom === 1 ? text.slice(1) : text);
+  const mistake = firstJsonMistake(text);
   if (!mistake) {
     const message = error instanceof Error ? error.message : String(error);
     return { message: `${CONFIG_FILE_NAME} is not valid JSON (${message}); Pneumark uses its defaults.`, range: WHOLE_FIRST_LINE };
   }
-  const start = bom + mistake.offset;
+  const start = mistake.offset;
   // At least one character, so that the editor shows it; none at the very end of the text.
   const end = Math.min(Math.max(start + mistake.length, start + 1), text.length);
   return { message: `${CONFIG_FILE_NAME} is not valid JSON (${mistake.words}); Pneumark uses its defaults.`, range: rangeOfOffsets(text, start, end) };
