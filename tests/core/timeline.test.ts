@@ -49,6 +49,14 @@ describe('timepoints and time', () => {
     expect(t.timepoints.map((tp) => tp.label)).toEqual(['start', '08:00']);
     expect(t.header.map((s) => s.fieldId)).toEqual(['age']);
   });
+
+  it('reads every patient, place and units line before the first `@` as the header, also after a measurement', () => {
+    const t = timeline('vitals hr 80\npatient weight 70 kg\nunits gas kPa\n@ 08:00\nabg po2 9.5');
+    expect(t.header.map((s) => s.fieldId)).toEqual(['weight', 'gas_unit']);
+    expect(t.headerGasUnit).toBe('kPa');
+    expect(t.timepoints.map((tp) => tp.values.get('weight')?.origin.kind)).toEqual(['header', 'header']);
+    expect(value(t.timepoints[1], 'pao2')).toBeCloseTo(71.3, 1); // 9.5 kPa read in the header's unit
+  });
 });
 
 describe('values in force and where they came from', () => {

@@ -193,7 +193,9 @@ function processBlock(lines: readonly LineNode[], start: number, end: number, in
     if (node.kind !== 'section') continue;
     const kind = sectionById(node.section).kind;
     if (kind === 'prose') continue;
-    const inHeader = tp === null && kind === 'header';
+    // Every patient, place and units line before the first `@` is the header, also one after a
+    // measurement that opened the implicit first timepoint (its line is null).
+    const inHeader = (tp === null || tp.line === null) && kind === 'header';
     if (!inHeader && tp === null) {
       tp = { index: 0, line: null, label: 'start', startLine: firstContentLine(tree), time: { day: null, minutes: null }, stated: [] };
     }
@@ -202,7 +204,7 @@ function processBlock(lines: readonly LineNode[], start: number, end: number, in
     const target = inHeader ? header : tp!.stated;
     if (stated.length > 0) duplicates(stated, inHeader ? (seenInHeader ??= new FirstSeen()) : (seenAtTimepoint ??= new FirstSeen()), issues);
     pushAll(target, stated);
-    apply(node.section, stated, tp ? tp.index : -1, tp ? tp.label : 'header', mutable);
+    apply(node.section, stated, inHeader ? -1 : tp!.index, inHeader ? 'header' : tp!.label, mutable);
   }
   const stateOut = reuseEqual(mutable, previousOut);
   // Most blocks have no header values and no issues: they keep shared empty lists.
