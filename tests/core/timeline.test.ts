@@ -214,6 +214,11 @@ describe('values stated twice at one timepoint (PN206)', () => {
     expect(pn206('patient age 61 y, age 62 y').map((f) => f.range.start.line)).toEqual([0]);
   });
 
+  it('says where the value was stated twice: in the header, or at a timepoint', () => {
+    expect(pn206('patient age 61 y\npatient age 62 y\n@ 08:00').map((f) => f.message)).toEqual(['age is stated twice in the header; the later value is used.']);
+    expect(pn206('@ 08:00\nvitals hr 80, hr 82').map((f) => f.message)).toEqual(['hr is stated twice at this timepoint; the later value is used.']);
+  });
+
   it('stays linear on a block that repeats one field many thousand times', () => {
     const repeats = 20_000;
     const text = `@ 08:00\nvitals ${Array.from({ length: repeats }, (_, i) => `hr ${60 + (i % 40)}`).join(', ')}`;

@@ -202,7 +202,7 @@ function processBlock(lines: readonly LineNode[], start: number, end: number, in
     if (context === null || context.place !== mutable.place || context.gasUnit !== mutable.gasUnit) context = reading.context = readContext(mutable, settings);
     const stated = readLine(node, context.read, issues);
     const target = inHeader ? header : tp!.stated;
-    if (stated.length > 0) duplicates(stated, inHeader ? (seenInHeader ??= new FirstSeen()) : (seenAtTimepoint ??= new FirstSeen()), issues);
+    if (stated.length > 0) duplicates(stated, inHeader ? (seenInHeader ??= new FirstSeen()) : (seenAtTimepoint ??= new FirstSeen()), inHeader, issues);
     pushAll(target, stated);
     apply(node.section, stated, inHeader ? -1 : tp!.index, inHeader ? 'header' : tp!.label, mutable);
   }
@@ -307,9 +307,10 @@ class FirstSeen {
 }
 
 /**
- * The same field twice in one section at one timepoint: the later value wins, the first is named.
+ * The same field twice in one section at one timepoint (or in the header): the later value wins,
+ * the first is named.
  */
-function duplicates(stated: readonly StatedValue[], seen: FirstSeen, issues: ReadIssue[]): void {
+function duplicates(stated: readonly StatedValue[], seen: FirstSeen, inHeader: boolean, issues: ReadIssue[]): void {
   for (const s of stated) {
     const earlier = seen.earlier(s);
     if (!earlier) continue;
@@ -317,7 +318,7 @@ function duplicates(stated: readonly StatedValue[], seen: FirstSeen, issues: Rea
       check: 'duplicate-key',
       line: s.line,
       span: s.item.key?.span ?? s.item.span,
-      message: `${s.item.keyName} is stated twice at this timepoint; the later value is used.`,
+      message: `${s.item.keyName} is stated twice ${inHeader ? 'in the header' : 'at this timepoint'}; the later value is used.`,
       fixes: [],
       related: [{ line: earlier.line, span: earlier.item.span, message: 'first stated here' }],
     });
