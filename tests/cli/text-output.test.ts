@@ -239,11 +239,11 @@ describe('show, in a kPa note', () => {
     expect(mmhg.out()).toContain('PB 630 mmHg (84.0 kPa)');
   });
 
-  it('gives header values in the header\'s unit when the lines after them, before any `@`, switch to kPa', async () => {
-    // Line 1 is the header; the lines after it make the first timepoint, whose gas unit is kPa.
+  it('gives header values in the gas unit at the header\'s end, a `units gas` after a measurement before any `@` included', async () => {
+    // Every units line before the first `@` is the header's: the 630 read before it is mmHg, shown in kPa.
     const out = io('place barometric 630\nvitals hr 80\nunits gas kPa\nabg paco2 5.3\n');
     await run(['show', '-'], out);
-    expect(out.out()).toContain('PB 630 mmHg (84.0 kPa)');
+    expect(out.out()).toContain('PB 84.0 kPa (630 mmHg)');
     expect(out.out()).toContain('PaCO2 5.3 kPa (40 mmHg)');
   });
 });
