@@ -139,6 +139,17 @@ describe('section lines', () => {
     expect(section('vitals bp 120 / 80 / 60').issues.map((i) => i.check)).toEqual(['missing-value']);
   });
 
+  it('reads a unit with a slash glued to the last number of a shorthand gas as its unit (`26mmol/L`), not the whole as stray text', () => {
+    const text = 'abg 7.28/56/71/26mmol/L, be -2';
+    const node = section(text);
+    expect(node.issues).toEqual([]);
+    expect(node.items.map((i) => summary(text, i))).toEqual(['ph | 7.28 | <none>', 'pco2 | 56 | mmol/L', 'po2 | 71 | mmol/L', 'hco3 | 26 | <none>', 'be | -2 | <none>']);
+    const one = 'labs hco3 24mmol/L';
+    expect(section(one).items.map((i) => summary(one, i))).toEqual(['hco3 | 24 | mmol/L']);
+    expect(section(one).issues).toEqual([]);
+    expect(section('vitals bp 120/80mm/x').issues.map((i) => i.check)).toEqual(['missing-value', 'stray-text']);
+  });
+
   it('gives a gas its shape: `abg 7.28/56` is a shorthand, not a key with two numbers', () => {
     expect(section('abg 7.28/56/71/26').issues).toEqual([]);
   });

@@ -467,8 +467,15 @@ function readSlashGroup(chunk: Word, source: string): PairNode | null {
     if (end === from) return null;
     const length = scanNumber(text, from);
     if (length !== end - from) {
-      // Only the last number may have a unit glued to it, and only one that starts with a letter or %.
-      if (slash >= 0 || length === 0 || !isUnitStart(text.charCodeAt(from + length))) return null;
+      // Only the last number may have a unit glued to it, and only one that starts with a letter or
+      // %; a known unit with a slash of its own ends the group there (`7.28/56/71/26mmol/L`).
+      if (length === 0 || !isUnitStart(text.charCodeAt(from + length))) return null;
+      if (slash >= 0) {
+        // (After one number only, it is a number and its unit: `24mmol/L`.)
+        if (k === 0 || !isKnownUnitSpelling(text.slice(from + length))) return null;
+        slash = -1;
+        packed.length = 4 * (k + 1);
+      }
       GROUP_UNIT_AT = from + length;
       groupEnd = chunk.start + from + length;
     }
