@@ -78,9 +78,14 @@ const NUM_MAX = '[-+−]?(?:[0-9]+[.,][0-9]+|\\.[0-9]+|[0-9]+(?![.,][0-9]))(?![0
 const UNREADABLE = `${NUM_MAX}(?=[^\\s#][0-9])(?=(?:[^\\s,#/]|,(?=[0-9]))*/)[^\\s#]${CHUNK_REST}`;
 /** A clock the parser accepts: 00:00 to 23:59, one or two hour digits. */
 const CLOCK = '(?:[01]?[0-9]|2[0-3]):[0-5][0-9]';
-/** An offset the parser accepts: +1d, +1d6h, +1d6h30, +1d30m, +2h, +2h30, +2h30m, +45m, +45min. */
+/**
+ * An offset the parser accepts: +1d, +1d6h, +1d6h30, +1d30m, +2h, +2h30, +2h30m, +45m, +45min. A
+ * part after a larger one stays within it (hours after days 0–23, minutes 0–59, two digits at most).
+ */
 const MIN = '(?:[mM][iI][nN]|[mM])';
-const OFFSET = `\\+(?:[0-9]+[dD](?:[0-9]+[hH](?:[0-9]+${MIN}?)?|[0-9]+${MIN})?|[0-9]+[hH](?:[0-9]+${MIN}?)?|[0-9]+${MIN})`;
+const HOURS_IN_DAY = '(?:[01]?[0-9]|2[0-3])';
+const MINUTES_IN_HOUR = '[0-5]?[0-9]';
+const OFFSET = `\\+(?:[0-9]+[dD](?:${HOURS_IN_DAY}[hH](?:${MINUTES_IN_HOUR}${MIN}?)?|${MINUTES_IN_HOUR}${MIN})?|[0-9]+[hH](?:${MINUTES_IN_HOUR}${MIN}?)?|[0-9]+${MIN})`;
 /** Prose: from a character that is not a blank to the last such character before a comment. */
 const PROSE = '[^\\s#](?:[^#]*[^\\s#])?';
 /** Blanks and commas before the first chunk of a line (the lexer skips both). */

@@ -347,6 +347,25 @@ describe('timepoints', () => {
     expect(readOffset('+90')).toBeNull();
     expect(readOffset('+h')).toBeNull();
     expect(readOffset('+30m2h')).toBeNull();
+    expect(readOffset('+1d2h30')).toBe(1590);
+    expect(readOffset('+36h')).toBe(2160);
+    expect(readOffset('+90m')).toBe(90);
+  });
+
+  it('refuses an offset whose later part runs over (`+2h90`), and offers what it adds up to', () => {
+    expect(readOffset('+2h90')).toBeNull();
+    expect(readOffset('+1d30h')).toBeNull();
+    expect(readOffset('+1d75m')).toBeNull();
+    expect(readOffset('+2h059')).toBeNull();
+    expect(readOffset('+2h59')).toBe(179);
+    expect(readOffset('+1d23h59m')).toBe(2879);
+    const text = '@ +2h90  review';
+    const node = timepoint(text);
+    expect(node.time).toBeNull();
+    expect(node.issues.map((i) => [i.check, at(text, i.span), i.fixes.map((f) => f.edits[0]?.newText)])).toEqual([['bad-time', '+2h90', ['+3h30']]]);
+    expect(node.issues[0]?.message).toBe('`+2h90` runs over: hours after days go from 0 to 23 and minutes after hours or days from 0 to 59. Did you mean `+3h30`?');
+    expect(timepoint('@ +1d30h').issues[0]?.fixes[0]?.edits[0]?.newText).toBe('+2d6h');
+    expect(timepoint('@ +1d90m').issues[0]?.fixes[0]?.edits[0]?.newText).toBe('+1d1h30m');
   });
 
   it('reads clock times and refuses impossible ones', () => {

@@ -226,7 +226,12 @@ function parseTimepoint(body: string, chunks: Word[], line: number, text: string
   } else if (c0.text.startsWith('+')) {
     const minutes = readOffset(c0.text);
     used = 1;
-    if (minutes === null) {
+    const over = minutes === null ? offsetOverflow(c0.text) : null;
+    if (over !== null) {
+      // `+2h90`: read as 3h30 it would move every later timepoint; what was meant is the writer's to say.
+      const meant = offsetText(over);
+      issues.push({ check: 'bad-time', span: c0.span, message: `\`${c0.text}\` runs over: hours after days go from 0 to 23 and minutes after hours or days from 0 to 59. Did you mean \`${meant}\`?`, fixes: [{ title: `Write \`${meant}\``, edits: [{ span: c0.span, newText: meant }] }] });
+    } else if (minutes === null) {
       issues.push({ check: 'bad-time', span: c0.span, message: `\`${c0.text}\` is not an offset; write it like \`+2h30\`, \`+45m\` or \`+1d\`.`, fixes: [] });
     } else {
       time = new TimeNode('offset', null, compact(minutes), body, c0.start, c0.end);
@@ -337,8 +342,24 @@ export function readClock(text: string): number | null {
   return compact(h * 60 + m);
 }
 
-/** `+2h30`, `+2h`, `+45m`, `+45min`, `+1d`, `+1d6h` → minutes; null when unreadable. */
+/**
+ * `+2h30`, `+2h`, `+45m`, `+45min`, `+1d`, `+1d6h` → minutes; null when unreadable. A part after a
+ * larger one stays within it, as a clock's do: hours after days 0 to 23, minutes after hours or
+ * days 0 to 59, in one or two digits (`+2h90` is no offset: see `offsetOverflow`).
+ */
 export function readOffset(text: string): number | null {
+  return offsetMinutes(text, true);
+}
+
+/**
+ * The minutes of an offset whose later parts run over (`+2h90` → 210), or null when it has no such
+ * part or does not read at all: what the writer may have meant, for the message.
+ */
+function offsetOverflow(text: string): number | null {
+  return offsetMinutes(text, true) === null ? offsetMinutes(text, false) : null;
+}
+
+function offsetMinutes(text: string, withinLarger: boolean): number | null {
   if (!text.startsWith('+') || text.length < 2) return null;
   let i = 1;
   let total = 0;
@@ -348,15 +369,25 @@ export function readOffset(text: string): number | null {
     while (i < text.length && isDigit(text.charCodeAt(i))) i++;
     if (i === start) return null;
     const n = Number(text.slice(start, i));
+    // A part after a larger one: at most two digits, and below the size of the larger unit.
+    const inner = withinLarger && lastUnit !== null && i - start > 2;
     const rest = text.slice(i).toLowerCase();
-    if (rest.startsWith('min')) { total += n; i += 3; lastUnit = 'm'; }
+    if (rest.startsWith('min')) { if (lastUnit === 'm' || inner || (withinLarger && lastUnit !== null && n > 59)) return null; total += n; i += 3; lastUnit = 'm'; }
     else if (rest.startsWith('d')) { if (lastUnit) return null; total += n * 1440; i += 1; lastUnit = 'd'; }
-    else if (rest.startsWith('h')) { if (lastUnit === 'h' || lastUnit === 'm') return null; total += n * 60; i += 1; lastUnit = 'h'; }
-    else if (rest.startsWith('m')) { if (lastUnit === 'm') return null; total += n; i += 1; lastUnit = 'm'; }
-    else if (rest === '' && lastUnit === 'h') { total += n; lastUnit = 'm'; }
+    else if (rest.startsWith('h')) { if (lastUnit === 'h' || lastUnit === 'm' || inner || (withinLarger && lastUnit === 'd' && n > 23)) return null; total += n * 60; i += 1; lastUnit = 'h'; }
+    else if (rest.startsWith('m')) { if (lastUnit === 'm' || inner || (withinLarger && lastUnit !== null && n > 59)) return null; total += n; i += 1; lastUnit = 'm'; }
+    else if (rest === '' && lastUnit === 'h') { if (inner || (withinLarger && n > 59)) return null; total += n; lastUnit = 'm'; }
     else return null;
   }
   return lastUnit === null ? null : total;
+}
+
+/** Minutes as an offset of days, hours and minutes, each after the first within the one before: 210 → `+3h30`. */
+function offsetText(minutes: number): string {
+  const d = Math.floor(minutes / 1440);
+  const h = Math.floor((minutes % 1440) / 60);
+  const m = minutes % 60;
+  return `+${d > 0 ? `${d}d` : ''}${h > 0 ? `${h}h` : ''}${m > 0 ? (h > 0 && d === 0 ? String(m).padStart(2, '0') : `${m}m`) : ''}` || '+0m';
 }
 
 // ── items ───────────────────────────────────────────────────────────────
