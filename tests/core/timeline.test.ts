@@ -104,9 +104,16 @@ describe('values in force and where they came from', () => {
     const t2 = timeline('@ 08:00\nvent mode VC, vt 450, rate 20, peep 8, fio2 0.5\n@ 09:00\nvent mode PS, ps 10');
     const later = t2.timepoints[1];
     expect(value(later, 'vt')).toBeUndefined();
-    expect(value(later, 'rate')).toBeUndefined();
+    expect(value(later, 'vent_rate')).toBeUndefined();
     expect(value(later, 'peep')).toBe(8);
     expect(value(later, 'fio2')).toBe(0.5);
+  });
+
+  it('reads a mode restated in another case as the same mode, keeping its settings', () => {
+    const t2 = timeline('@ 08:00\nvent mode ASV, vt 450, rate 20, peep 8\n@ 09:00\nvent mode asv, peep 10\n@ 10:00\nvent mode vc');
+    const [, later, vc] = t2.timepoints;
+    expect([value(later, 'vt'), value(later, 'vent_rate'), value(later, 'peep')]).toEqual([450, 20, 10]);
+    expect([value(vc, 'vt'), value(vc, 'peep')]).toEqual([undefined, 10]);
   });
 
   it('estimates barometric pressure from altitude, and a later place replaces it', () => {

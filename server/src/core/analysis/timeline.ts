@@ -349,11 +349,12 @@ function apply(section: SectionId, stated: readonly StatedValue[], tp: number, l
     case 'oxygen': state.oxygen = hold(EMPTY, stated, tp, label); state.vent = EMPTY; break;
     case 'vent': {
       state.oxygen = EMPTY;
-      // A new mode starts a new set of settings; PEEP and FiO2 carry across it.
+      // A new mode starts a new set of settings; PEEP and FiO2 carry across it. Modes are words of
+      // any case: one outside the registry's (`ASV`, then `asv`) is the same mode restated.
       const mode = stated.find((s) => s.fieldId === 'mode');
       const before = state.vent.get('mode')?.stated.word;
       let base = state.vent;
-      if (mode?.word && before && mode.word !== before) base = new Map([...base].filter(([id]) => id === 'peep' || id === 'fio2'));
+      if (mode?.word && before && mode.word.toLowerCase() !== before.toLowerCase()) base = new Map([...base].filter(([id]) => id === 'peep' || id === 'fio2'));
       state.vent = hold(base, stated, tp, label);
       break;
     }
