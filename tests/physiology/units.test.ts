@@ -3,13 +3,14 @@
  * and (b) an independent general-purpose UCUM implementation, @lhncbc/ucum-lhc.
  *
  * Tolerance against UCUM: relative 1e-5. UCUM defines mm[Hg] as 133.3220 Pa (rounded), while the
- * conventional millimetre of mercury is 133.322387 Pa and MMHG_PER_KPA is rounded to 7.50062; the
- * two therefore differ by ~3e-6 relative.
+ * conventional millimetre of mercury is 133.322387 Pa (MMHG_PER_KPA = 1000 ÷ 133.322387 = 7.500617,
+ * 7.50062 to six figures); the two therefore differ by ~3e-6 relative.
  */
 import { UcumLhcUtils } from '@lhncbc/ucum-lhc';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import * as units from '../../server/src/core/physiology/units';
+import { convert, unitById } from '../../server/src/core/fields/units';
 import {
   celsiusFromFahrenheit,
   cmh2oToMmhg,
@@ -52,6 +53,15 @@ describe('pressure constants', () => {
   it('1 cmH2O = 98.0665 Pa = 0.735559 mmHg (NIST SP 811) and agrees with UCUM', () => {
     expect(98.0665 / 133.322387415).toBeCloseTo(MMHG_PER_CMH2O, 6);
     expectRelativelyClose(MMHG_PER_CMH2O, ucumConvert('cm[H2O]', 1, 'mm[Hg]'));
+  });
+});
+
+describe('one kPa factor', () => {
+  it('the unit registry (values read and shown) converts kPa exactly as kpaToMmhg and mmhgToKpa do', () => {
+    const kpa = unitById('kPa')!;
+    const mmHg = unitById('mmHg')!;
+    for (const v of [1, 5.3, 8, 13.3, 101.325]) expect(convert(v, kpa, mmHg)).toBe(kpaToMmhg(v));
+    for (const v of [40, 60, 100, 253, 760]) expect(convert(v, mmHg, kpa)).toBe(mmhgToKpa(v));
   });
 });
 

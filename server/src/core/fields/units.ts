@@ -4,7 +4,7 @@
  * conversion happens only at the edges (parsing and display).
  */
 
-import { PA_PER_CMH2O, PA_PER_MMHG } from '../physiology/units';
+import { MMHG_PER_KPA, PA_PER_CMH2O } from '../physiology/units';
 
 export type Dimension =
   | 'gas-pressure'
@@ -37,7 +37,6 @@ export interface UnitDef {
 
 /** Definitions of the units (exact where the unit is defined exactly). */
 /** Exact conversions from the definitions of the units (physiology/units.ts holds the constants). */
-const MMHG_PER_KPA_EXACT = 1000 / PA_PER_MMHG; // 7.50062
 const CMH2O_PER_MBAR = 100 / PA_PER_CMH2O; // 1.019716
 
 const linear = (factor: number) => ({
@@ -58,7 +57,7 @@ function unit(
 /** Base units: mmHg, cmH2O, fraction, %, /min, °C, mL, L/min, g/dL, mmol/L, cm, kg, years, pH units. */
 export const UNITS: readonly UnitDef[] = [
   unit('mmHg', 'gas-pressure', 'mm[Hg]', linear(1), ['mm Hg', 'mmhg', 'torr']),
-  unit('kPa', 'gas-pressure', 'kPa', linear(MMHG_PER_KPA_EXACT), ['kpa']),
+  unit('kPa', 'gas-pressure', 'kPa', linear(MMHG_PER_KPA), ['kpa']),
   unit('cmH2O', 'airway-pressure', 'cm[H2O]', linear(1), ['cmh2o', 'cm H2O', 'cmwater']),
   unit('mbar', 'airway-pressure', 'mbar', linear(CMH2O_PER_MBAR), ['hPa']),
   unit('fraction', 'fraction', '1', linear(1), []),

@@ -18,8 +18,12 @@ export const SOURCES = Object.freeze({
 
 /** Pascals in one conventional millimetre of mercury (13.5951 g/cm³ × 9.80665 m/s² × 1 mm). Source: `nist-sp811`. */
 export const PA_PER_MMHG = 133.322387415;
-/** mmHg in one kilopascal, rounded as pinned in shared/REFERENCES.md. Source: `nist-sp811`. */
-export const MMHG_PER_KPA = 7.50062;
+/**
+ * mmHg in one kilopascal: 1000 ÷ 133.322387415 = 7.500617 (7.50062 to six figures). The exact
+ * quotient, not the rounded figure, so every kPa value in Pneumark (read, shown, converted) goes
+ * through one factor. Source: `nist-sp811`.
+ */
+export const MMHG_PER_KPA = 1000 / PA_PER_MMHG;
 /** Pascals in one conventional centimetre of water (1 g/cm³ × 9.80665 m/s² × 1 cm). Source: `nist-sp811`. */
 export const PA_PER_CMH2O = 98.0665;
 /** mmHg in one cmH2O (98.0665 / 133.322387415, rounded). Source: `nist-sp811`. */
@@ -31,13 +35,13 @@ export const METRES_PER_FOOT = 0.3048;
 /** Absolute zero in degrees Celsius. Source: `si-brochure`. */
 export const ABSOLUTE_ZERO_CELSIUS = -273.15;
 
-/** Kilopascals to mmHg: kPa × 7.50062. Any finite pressure (gauge pressures may be negative). Source: `nist-sp811`. */
+/** Kilopascals to mmHg: kPa × 7.500617 (`MMHG_PER_KPA`). Any finite pressure (gauge pressures may be negative). Source: `nist-sp811`. */
 export function kpaToMmhg(pressureKpa: number): number | null {
   if (!allFinite(pressureKpa)) return null;
   return finiteOrNull(pressureKpa * MMHG_PER_KPA);
 }
 
-/** mmHg to kilopascals: mmHg ÷ 7.50062. Source: `nist-sp811`. */
+/** mmHg to kilopascals: mmHg ÷ 7.500617 (`MMHG_PER_KPA`). Source: `nist-sp811`. */
 export function mmhgToKpa(pressureMmhg: number): number | null {
   if (!allFinite(pressureMmhg)) return null;
   return finiteOrNull(pressureMmhg / MMHG_PER_KPA);
