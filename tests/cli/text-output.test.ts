@@ -217,7 +217,8 @@ describe('show, for a value whose unit is in doubt', () => {
     // A conversion from mmHg of 5.3 (0.7 kPa) or of 101 (13.5 kPa) says nothing true.
     expect(text).not.toMatch(/\(0\.7 kPa\)|\(13\.5 kPa\)/);
     // A usable value keeps its other unit.
-    expect(text).toContain('PaO2 83 mmHg (11.0 kPa)');
+    // The one usable gas pressure is written in kPa, so the timepoint shows kPa first.
+    expect(text).toContain('PaO2 11.0 kPa (83 mmHg)');
   });
 
   it('in a note that reads bare gases in kPa, shows the likely mmHg value in kPa', async () => {

@@ -202,6 +202,29 @@ describe('a note in mmHg', () => {
   });
 });
 
+describe('a gas written with its unit', () => {
+  // 9.8 kPa = 73.5 mmHg; ÷ 0.40 = 183.8 mmHg = 24.5 kPa (as above, UCUM for the kPa).
+  it('in kPa, in a note read in mmHg, is shown in kPa first at its timepoint', () => {
+    const result = checkNote(note('@ 08:00', 'oxygen venturi, fio2 0.4', 'abg 7.32/7.2/9.8/26 kPa', '@ 09:00', 'abg 7.30/56/71/26'));
+    expect(result.analysis.timeline.timepoints.map((tp) => [tp.gasUnit, tp.shownGasUnit])).toEqual([['mmHg', 'kPa'], ['mmHg', 'mmHg']]);
+    expect(timepointSummary(result, 2)?.text).toBe('P/F 24.5 kPa (184) · pH 7.32 · PaCO2 7.2 kPa · PaO2 9.8 kPa');
+    expect(hintsOn(result, 2)[0]?.label).toMatch(/^P\/F 24\.5 kPa \(184\)/);
+    const at = noteAt(note('@ 08:00', 'oxygen venturi, fio2 0.4', 'abg 7.32/7.2/9.|8/26 kPa'));
+    expect(hoverAt(at.result, at.position)?.markdown).toContain('Value: **9.8 kPa** = 74 mmHg');
+    // The next timepoint writes its gas bare, read in the note's mmHg: shown in mmHg again.
+    expect(timepointSummary(result, 4)?.text).toBe('P/F 178 · pH 7.30 · PaCO2 56 · PaO2 71');
+  });
+
+  it('in mmHg, in a kPa note, is shown in mmHg first; units that differ within a gas leave the note\'s unit', () => {
+    const inMmhg = checkNote(note('units gas kPa', '@ 08:00', 'oxygen venturi, fio2 0.4', 'abg ph 7.30, pco2 56 mmHg, po2 71 mmHg'));
+    expect(inMmhg.analysis.timeline.timepoints[0]?.shownGasUnit).toBe('mmHg');
+    expect(timepointSummary(inMmhg, 3)?.text).toBe('P/F 178 · pH 7.30 · PaCO2 56 · PaO2 71');
+    const mixed = checkNote(note('units gas kPa', '@ 08:00', 'oxygen venturi, fio2 0.4', 'abg ph 7.32, pco2 7.2, po2 73.5 mmHg'));
+    expect(mixed.analysis.timeline.timepoints[0]?.shownGasUnit).toBe('kPa');
+    expect(timepointSummary(mixed, 3)?.text).toMatch(/^P\/F 24\.5 kPa \(184\)/);
+  });
+});
+
 /**
  * A tiny evaluator for the arithmetic of a formula with its numbers: numbers, + − × ÷ and
  * parentheses; null for anything else (functions, powers, ranges, words).

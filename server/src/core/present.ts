@@ -84,9 +84,12 @@ const KPA = unitById('kPa')!;
 /** Decimals of a gas pressure shown in kPa. */
 export const KPA_DECIMALS = decimalsFor('kPa', 1);
 
-/** Whether gas pressures at this timepoint are shown in kPa first: its gas unit in force is kPa. */
+/**
+ * Whether gas pressures at this timepoint are shown in kPa first: its gas pressures were read in
+ * kPa, or it states none (or in both units) and its gas unit in force is kPa.
+ */
 export function showsKpa(tp: Timepoint | null | undefined): boolean {
-  return tp?.gasUnit === 'kPa';
+  return tp?.shownGasUnit === 'kPa';
 }
 
 /**

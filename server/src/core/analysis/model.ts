@@ -82,4 +82,10 @@ export interface Timepoint {
    * gas pressures are shown in it (values stay mmHg inside the core).
    */
   readonly gasUnit: 'mmHg' | 'kPa';
+  /**
+   * The unit gas pressures are shown in at this timepoint (hints, hovers, readings): the unit the
+   * gas pressures stated here were read in when they all agree (`abg 7.32/6.1/9.4/22 kPa` in a
+   * note read in mmHg shows kPa), else `gasUnit`.
+   */
+  readonly shownGasUnit: 'mmHg' | 'kPa';
 }

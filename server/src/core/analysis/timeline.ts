@@ -485,7 +485,22 @@ function freeze(b: { index: number; line: number | null; label: string; startLin
   // Kept as long as the timepoint: a copy of its exact length (an array grown by push keeps room to spare).
   const stated = b.stated.slice();
   const values = new ValuesAt(b.index, state, stated);
-  return { index: b.index, line: b.line, label: b.label, startLine: b.startLine, endLine, time: b.time, stated, values, barometricMmhg: barometricInForce(state.place, settings), gasUnit: gasUnitInForce(state, settings) };
+  const gasUnit = gasUnitInForce(state, settings);
+  return { index: b.index, line: b.line, label: b.label, startLine: b.startLine, endLine, time: b.time, stated, values, barometricMmhg: barometricInForce(state.place, settings), gasUnit, shownGasUnit: gasUnitWritten(stated) ?? gasUnit };
+}
+
+/** Fields whose values are gas pressures, in mmHg or kPa (the place's barometric pressure is a setting, not a gas). */
+const GAS_PRESSURE_FIELDS: ReadonlySet<string> = new Set(FIELDS.filter((f) => f.id !== 'barometric' && f.units?.includes('kPa')).map((f) => f.id));
+
+/** The unit the usable gas pressures among `stated` were read in, when there are some and they agree; else null. */
+function gasUnitWritten(stated: readonly StatedValue[]): 'mmHg' | 'kPa' | null {
+  let unit: 'mmHg' | 'kPa' | null = null;
+  for (const s of stated) {
+    if (!s.usable || (s.readUnit !== 'kPa' && s.readUnit !== 'mmHg') || !GAS_PRESSURE_FIELDS.has(s.fieldId)) continue;
+    if (unit === null) unit = s.readUnit;
+    else if (unit !== s.readUnit) return null;
+  }
+  return unit;
 }
 
 function originOf(held: Held, tp: number): Origin {

@@ -198,7 +198,7 @@ export function inlayHints(result: NoteResult, lines: LineSpan, options: HintOpt
  * timepoint has a `units gas` line of its own.
  */
 function asOnHeader(tp: Timepoint, headerGasUnit: Timepoint['gasUnit']): Timepoint {
-  return tp.gasUnit === headerGasUnit ? tp : { ...tp, gasUnit: headerGasUnit };
+  return tp.shownGasUnit === headerGasUnit ? tp : { ...tp, gasUnit: headerGasUnit, shownGasUnit: headerGasUnit };
 }
 
 /** `178`, `628 mmHg` (with `unit`), or for a gas pressure in kPa `23.7 kPa (178)`. */
