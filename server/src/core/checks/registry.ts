@@ -17,6 +17,7 @@ import { peepAbovePlateau, plateauAbovePeak, systolicBelowDiastolic } from './pr
 import { birthDate, calendarDate, emailAddress, phoneNumber, possibleName, postalCode, recordNumber } from './privacy';
 import { timeGoesBack } from './time-order';
 import { rateBelowSet } from './rate-order';
+import { flowOnRoomAirCheck } from './room-air-flow';
 import { fio2OutOfRange, impossibleValue, saturationAbove100, unusualValue } from './value-bounds';
 
 export const CHECKS: readonly CheckDef[] = validateCheckList([
@@ -41,6 +42,7 @@ export const CHECKS: readonly CheckDef[] = validateCheckList([
   fio2OutOfRange,
   timeGoesBack,
   rateBelowSet,
+  flowOnRoomAirCheck,
   pao2AboveAlveolar,
   gasInconsistent,
   tidalVolumeHigh,

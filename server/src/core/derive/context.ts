@@ -3,7 +3,7 @@
  * other derived values (computed once, on demand), the settings, and the rules for inputs that
  * several formulas share (FiO2, barometric pressure, respiratory rate).
  */
-import type { InputValue, Timepoint } from '../analysis/model';
+import type { InputValue, Timepoint, ValuesInForce } from '../analysis/model';
 import { fieldById } from '../fields/registry';
 import { displayUnit } from '../analysis/read-value';
 import type { Settings } from '../settings';
@@ -23,6 +23,17 @@ export interface ValueExtras {
 }
 
 const NO_EXTRAS: ValueExtras = {};
+
+/**
+ * The oxygen flow of a room-air line, when one above zero is written (`oxygen room air 2`); null
+ * otherwise. Room air is no added oxygen, so such a line gives no FiO2 (and PN310 reports it).
+ * Read without building the values.
+ */
+export function flowOnRoomAir(values: ValuesInForce): number | null {
+  const flow = values.numberOf('o2_flow');
+  if (flow === null || !(flow > 0)) return null;
+  return values.get('device')?.stated.word === 'room air' ? flow : null;
+}
 
 export type Outcome =
   | ({ readonly kind: 'value'; readonly value: number; readonly terms: readonly Term[] } & ValueExtras)
@@ -172,7 +183,8 @@ export class DeriveContext {
     const stated = this.field('fio2', 'FiO2');
     if (stated) return stated;
     const device = this.word('device');
-    if (device?.word === 'room air') {
+    // Room air with an oxygen flow (PN310) says oxygen is given, through a device not named.
+    if (device?.word === 'room air' && flowOnRoomAir(this.timepoint.values) === null) {
       return { name: 'FiO2', value: 0.21, unit: '', decimals: 2, origin: device.input.origin, note: 'room air' };
     }
     return null;
@@ -181,6 +193,7 @@ export class DeriveContext {
   /** What to add to get FiO2 (a low-flow device needs a stated FiO2). */
   fio2Need(): string {
     const device = this.word('device');
+    if (device?.word === 'room air' && flowOnRoomAir(this.timepoint.values) !== null) return 'the oxygen device (room air takes no oxygen flow)';
     if (device && (device.word === 'cannula' || device.word === 'mask')) return `fio2 (a ${device.word}'s FiO2 is only an estimate)`;
     // An oxygen line is there, without its FiO2 (`oxygen venturi 8`): the FiO2 goes on that line.
     if (device && device.word !== 'room air') return `fio2 (on the ${device.word} line)`;

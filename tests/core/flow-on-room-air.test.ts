@@ -1,0 +1,43 @@
+// PN310: an oxygen flow on a room-air line. Room air is breathing without supplemental oxygen,
+// so it has no oxygen flow (common practice, no source); such a line gives no FiO2 of 0.21, so
+// the values that need FiO2 wait for the device to be named instead of being computed on air.
+import { describe, expect, it } from 'vitest';
+import { checkNote } from '../../server/src/core';
+
+const pn310 = (text: string) => checkNote(text).findings.filter((f) => f.code === 'PN310');
+const gas = 'abg 7.40/40/80/24';
+
+function derivedAt(text: string, id: string) {
+  const r = checkNote(text);
+  const d = r.analysis.derivation(0);
+  return { value: d.derived.find((v) => v.id === id) ?? null, missing: d.missing.find((m) => m.id === id) ?? null };
+}
+
+describe('an oxygen flow on room air (PN310)', () => {
+  it('fires on the flow, written bare after the device or with its key', () => {
+    const f = pn310(`@ 08:00\noxygen room air 2\n${gas}`);
+    expect(f).toHaveLength(1);
+    expect(f[0]?.severity).toBe('warning');
+    expect(f[0]?.message).toBe('Room air with an oxygen flow of 2 L/min: room air means no added oxygen. Name the device (e.g. `oxygen cannula 2`) or remove the flow; FiO2 is not taken as 0.21 until then.');
+    expect(f[0]?.range).toEqual({ start: { line: 1, character: 16 }, end: { line: 1, character: 17 } });
+    expect(pn310('@ 08:00\noxygen ra, flow 2 L/min')).toHaveLength(1);
+  });
+
+  it('fires where the line is written, not at each timepoint it carries to', () => {
+    expect(pn310('@ 08:00\noxygen room air 2\n@ 09:00\nvitals hr 80').map((f) => f.range.start.line)).toEqual([1]);
+  });
+
+  it('stays silent for room air alone, a zero flow, and a flow through a device', () => {
+    expect(pn310('@ 08:00\noxygen room air')).toEqual([]);
+    expect(pn310('@ 08:00\noxygen room air 0')).toEqual([]);
+    expect(pn310('@ 08:00\noxygen cannula 2')).toEqual([]);
+  });
+
+  it('takes no FiO2 of 0.21 from such a line: P/F waits for the device', () => {
+    // Room air alone: P/F = 80 ÷ 0.21 = 381 (P/F = PaO2 ÷ FiO2; FiO2 of air 0.21, common practice).
+    expect(derivedAt(`@ 08:00\noxygen room air\n${gas}`, 'pf_ratio').value?.value).toBeCloseTo(80 / 0.21, 6);
+    const withFlow = derivedAt(`@ 08:00\noxygen room air 2\n${gas}`, 'pf_ratio');
+    expect(withFlow.value).toBeNull();
+    expect(withFlow.missing?.needs).toEqual(['the oxygen device (room air takes no oxygen flow)']);
+  });
+});
