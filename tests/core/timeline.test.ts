@@ -213,7 +213,7 @@ describe('values stated twice at one timepoint (PN206)', () => {
     const found = pn206(text);
     // hr twice more (lines 3 and 7), po2 once more (line 4); fio2 in vent and in abg are two sections.
     expect(found.map((f) => f.range.start.line)).toEqual([3, 4, 7]);
-    for (const f of found) expect(f.related?.[0]?.range.start.line).toBe(f.message.startsWith('hr') ? 1 : 2);
+    for (const f of found) expect(f.related?.[0]?.range.start.line).toBe(f.message.startsWith('Heart rate') ? 1 : 2);
   });
 
   it('tells the header from the timepoint, and one timepoint from the next', () => {
@@ -222,8 +222,16 @@ describe('values stated twice at one timepoint (PN206)', () => {
   });
 
   it('says where the value was stated twice: in the header, or at a timepoint', () => {
-    expect(pn206('patient age 61 y\npatient age 62 y\n@ 08:00').map((f) => f.message)).toEqual(['age is stated twice in the header; the later value is used.']);
-    expect(pn206('@ 08:00\nvitals hr 80, hr 82').map((f) => f.message)).toEqual(['hr is stated twice at this timepoint; the later value is used.']);
+    expect(pn206('patient age 61 y\npatient age 62 y\n@ 08:00').map((f) => f.message)).toEqual(['Age is stated twice in the header; the later value is used.']);
+    expect(pn206('@ 08:00\nvitals hr 80, hr 82').map((f) => f.message)).toEqual(['Heart rate is stated twice at this timepoint; the later value is used.']);
+  });
+
+  it('names the field as the other messages do, also where its key is implied (a device, a shorthand gas)', () => {
+    expect(pn206('@ 08:00\noxygen cannula 2\noxygen mask 5').map((f) => f.message)).toEqual([
+      'Oxygen device is stated twice at this timepoint; the later value is used.',
+      'Oxygen flow is stated twice at this timepoint; the later value is used.',
+    ]);
+    expect(pn206('@ 08:00\nabg 7.30/50/60\nabg po2 64').map((f) => f.message)).toEqual(['PaO2 is stated twice at this timepoint; the later value is used.']);
   });
 
   it('stays linear on a block that repeats one field many thousand times', () => {

@@ -43,7 +43,7 @@ describe('readings and checks', () => {
   it('shows the bounds of an unusual value in another unit with the decimals that keep the value outside them', () => {
     // Height soft bounds 120–220 cm (the registry's own, common practice): 47.24–86.61 in.
     const messages = checkNote('patient height 47.1 in\n@ 08:00').findings.map((f) => f.message);
-    expect(messages).toContain('Height 47.1 is unusual (usually 47.2 in to 87 in): check the unit and the transcription.');
+    expect(messages).toContain('Height 47.1 in is unusual (usually 47.2 in to 87 in): check the unit and the transcription.');
   });
 
   it('shows a plateau of 30.4 and a driving pressure of 15.4 as such beside 30 and 15', () => {

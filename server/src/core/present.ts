@@ -115,6 +115,12 @@ export function kpaFirstCompact(mmHg: number, decimals: number): string {
   return `${kpaNumber(mmHg)} kPa (${formatNumber(mmHg, decimals)})`;
 }
 
+/** `160 mmHg`, or where gas pressures are shown in kPa first (`kpa`), `21.3 kPa (160 mmHg)`: a pressure in a message. */
+export function gasPressureText(mmHg: number, decimals: number, kpa: boolean): string {
+  const inMmhg = `${formatNumber(mmHg, decimals)} mmHg`;
+  return kpa ? `${kpaNumber(mmHg)} kPa (${inMmhg})` : inMmhg;
+}
+
 /** Whether a field is a gas pressure a note may write in kPa (PaO2, PaCO2; not a blood pressure). */
 export function isKpaField(fieldId: string): boolean {
   return fieldById(fieldId)?.units?.includes('kPa') === true;

@@ -7,7 +7,7 @@ import { canonicalWord, FIELDS, keysInSection, type FieldDef } from '../fields/r
 import type { SectionId } from '../fields/sections';
 import { convert, unitById, unitsForSpelling, type UnitDef } from '../fields/units';
 import type { ItemNode, LineFix, PairValue } from '../syntax/tree';
-import { formatNumber } from '../util/format';
+import { formatNumber, wordList } from '../util/format';
 import { closest, editDistance } from '../util/suggest';
 import { doubtBoundsAt, softBoundsAt, within, type BoundsContext } from './bounds';
 import type { StatedValue } from './model';
@@ -262,7 +262,7 @@ function unknownUnitIssue(item: ItemNode, field: FieldDef, line: number): ReadIs
     check: 'unknown-unit',
     line,
     span: unit.span,
-    message: `\`${unit.text}\` is not a unit Pneumark knows; ${field.label} takes ${allowed.join(', ')}.`,
+    message: `\`${unit.text}\` is not a unit Pneumark knows; ${field.label} takes ${wordList(allowed, 'or')}.`,
     fixes: near.map((u) => ({ title: `Change to ${u}`, edits: [{ span: unit.span, newText: u }] })),
   };
 }
@@ -274,7 +274,7 @@ function unitNotAllowedIssue(item: ItemNode, field: FieldDef, line: number, cand
     check: 'unit-not-allowed',
     line,
     span: unit.span,
-    message: `${field.label} is not measured in ${candidates[0]?.id ?? unit.text}; it takes ${allowed.join(', ')}.`,
+    message: `${field.label} is not measured in ${candidates[0] ? displayUnit(candidates[0].id) : unit.text}; it takes ${wordList(allowed, 'or')}.`,
     fixes: allowed.map((u) => ({ title: `Change to ${u}`, edits: [{ span: unit.span, newText: u }] })),
   };
 }

@@ -318,7 +318,7 @@ function duplicates(stated: readonly StatedValue[], seen: FirstSeen, inHeader: b
       check: 'duplicate-key',
       line: s.line,
       span: s.item.key?.span ?? s.item.span,
-      message: `${s.item.keyName} is stated twice ${inHeader ? 'in the header' : 'at this timepoint'}; the later value is used.`,
+      message: `${s.item.field?.label ?? s.item.keyName} is stated twice ${inHeader ? 'in the header' : 'at this timepoint'}; the later value is used.`,
       fixes: [],
       related: [{ line: earlier.line, span: earlier.item.span, message: 'first stated here' }],
     });

@@ -3,6 +3,7 @@ import { describeInputOrigin } from '../derive/context';
 import { ALVEOLAR_ROUNDING_MMHG } from '../derive/gas-exchange';
 import { derivedValueOf } from '../derive/registry';
 import { SOURCES } from '../physiology';
+import { gasPressureText, showsKpa } from '../present';
 import { toRange } from '../syntax/tree';
 import { formatNumber } from '../util/format';
 import { defineCheck } from './check';
@@ -33,12 +34,13 @@ export const pao2AboveAlveolar = defineCheck({
         ? [{ range: toRange(fio2.origin.line, fio2.origin.span), message: `FiO2 ${formatNumber(fio2.value, 2)} in force (${describeInputOrigin(fio2.origin)})` }]
         : [];
       const allowed = fio2 ? `FiO2 ${formatNumber(fio2.value, 2)}` : 'the FiO2';
+      const kpa = showsKpa(tp);
       ctx.report({
         range: toRange(pao2.stated.line, pao2.stated.item.value?.span ?? pao2.stated.item.span),
         message: alveolar.value < 0
           // The alveolar gas equation gives less than nothing: the inputs contradict each other whatever the PaO2.
-          ? `No PaO2 is possible here: with ${allowed}, the barometric pressure and the PaCO2 in force, the alveolar PO2 comes out at ${formatNumber(alveolar.value, 0)} mmHg. Check the FiO2, the altitude or pressure, and the units of PaCO2 and PaO2.`
-          : `PaO2 ${formatNumber(pao2.stated.value, 0)} mmHg is above the alveolar PO2 of ${formatNumber(alveolar.value, 0)} mmHg that ${allowed} allows here: check the FiO2, the unit, a venous sample or an air bubble.`,
+          ? `No PaO2 is possible here: with ${allowed}, the barometric pressure and the PaCO2 in force, the alveolar PO2 comes out at ${gasPressureText(alveolar.value, 0, kpa)}. Check the FiO2, the altitude or pressure, and the units of PaCO2 and PaO2.`
+          : `PaO2 ${gasPressureText(pao2.stated.value, 0, kpa)} is above the alveolar PO2 of ${gasPressureText(alveolar.value, 0, kpa)} that ${allowed} allows here: check the FiO2, the unit, and whether the sample was venous or had an air bubble.`,
         related,
       });
     }

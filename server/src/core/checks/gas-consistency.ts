@@ -1,5 +1,6 @@
 /** pH, PaCO2 and HCO3 of one gas must agree (Henderson–Hasselbalch). */
 import { acidBaseConsistency, HCO3_CONSISTENCY_TOLERANCE, SOURCES } from '../physiology';
+import { gasPressureText, showsKpa } from '../present';
 import { toRange } from '../syntax/tree';
 import { formatNumber } from '../util/format';
 import { defineCheck } from './check';
@@ -15,7 +16,7 @@ export const gasInconsistent = defineCheck({
     example: '@ 08:00\nabg 7.40/40/90/15',
     fix: 'Check the three values against the analyser print-out; the hover shows the HCO3 the pH and PaCO2 imply.',
   },
-  source: `${SOURCES['henderson-hasselbalch']}; tolerance: ${SOURCES['pneumark-consistency-tolerance']}`,
+  source: `${SOURCES['henderson-hasselbalch']} ${SOURCES['pneumark-consistency-tolerance']}`,
   runTimepoint(ctx) {
     const tp = ctx.timepoint;
     // Only an HCO3 stated here is checked (asked without building the value).
@@ -32,7 +33,7 @@ export const gasInconsistent = defineCheck({
       if (!result || result.consistent) return;
       ctx.report({
         range: toRange(hco3.stated.line, hco3.stated.item.value?.span ?? hco3.stated.item.span),
-        message: `HCO3 ${formatNumber(hco3.stated.value!, 1)} does not fit pH ${formatNumber(ph.stated.value!, 2)} and PaCO2 ${formatNumber(paco2.stated.value!, 0)} mmHg, which give ${formatNumber(result.calculatedHco3MmolL, 1)} mmol/L: a transcription error or values from different samples?`,
+        message: `HCO3 ${formatNumber(hco3.stated.value!, 1)} mmol/L does not fit pH ${formatNumber(ph.stated.value!, 2)} and PaCO2 ${gasPressureText(paco2.stated.value!, 0, showsKpa(tp))}, which give ${formatNumber(result.calculatedHco3MmolL, 1)} mmol/L: a transcription error, or values from different samples?`,
       });
     }
   },

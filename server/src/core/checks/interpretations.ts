@@ -51,7 +51,7 @@ function readingRange(ctx: TimepointContext, line: number): Range {
 const READING_FIX = 'Nothing to fix: a reading to support, not replace, clinical judgement. The readings of one gas come together, so the example also shows the other reading checks (PN410–PN413).';
 
 export const oxygenationReading = interpretationCheck('PN410', 'oxygenation-reading', 'Oxygenation reading', ['oxygenation', 'oxygenation-band'], 'hypoxaemia PaO2 < 60 mmHg (setting): common practice, no source; oxygenation bands: ARDS Definition Task Force, JAMA 2012;307:2526–2533 (from memory)', {
-  fires: 'A gas shows hypoxaemia, or oxygenation that needs supplemental oxygen (P/F ≤ 300 on oxygen); with PEEP or CPAP ≥ 5 cmH2O, the P/F band of the Berlin definition is named — as an oxygenation band, never as a diagnosis.',
+  fires: 'A gas is consistent with hypoxaemia, or with oxygenation supported by supplemental oxygen (P/F ≤ 300 mmHg on oxygen); with PEEP or CPAP ≥ 5 cmH2O, the P/F band of the Berlin definition is named — as an oxygenation band, never as a diagnosis.',
   example: '@ 08:00\noxygen room air\nabg 7.44/34/52/23',
   fix: READING_FIX,
 });
@@ -63,13 +63,13 @@ export const ventilationReading = interpretationCheck('PN411', 'ventilation-read
 });
 
 export const respiratoryFailureReading = interpretationCheck('PN412', 'respiratory-failure-reading', 'Respiratory failure reading', ['respiratory-failure', 'hypoxaemia-mechanism'], 'type 1: hypoxaemia with normal or low PaCO2; type 2: hypoxaemia with hypercapnia (common practice, no source); mechanism from PiO2, A–a gradient and PaCO2 (alveolar gas equation)', {
-  fires: 'The gas is consistent with type 1 or type 2 respiratory failure; the likely mechanism of the hypoxaemia (low inspired oxygen, hypoventilation, a raised A–a gradient, or a mix) is named.',
+  fires: 'The gas is consistent with type 1 or type 2 respiratory failure; the mechanism of hypoxaemia the values are consistent with (low inspired oxygen, hypoventilation, a raised A–a gradient, or a mix) is named.',
   example: '@ 08:00\noxygen room air\nabg 7.28/62/51/28',
   fix: READING_FIX,
 });
 
 export const acidBaseReading = interpretationCheck('PN413', 'acid-base-reading', 'Acid–base reading', ['acid-base'], "primary disorder and compensation: Albert, Dell & Winters 1967; Narins & Emmett 1980; Adrogué & Madias 2010; Berend et al. 2014 (from memory)", {
-  fires: 'The gas shows an acid–base disorder: the primary disorder, whether the compensation is in the expected range, a suspected second disorder, and acute versus chronic for a respiratory disorder.',
+  fires: 'The gas is consistent with an acid–base disorder: the primary disorder, whether the compensation is in the expected range, a second disorder the values are also consistent with, and acute versus chronic for a respiratory disorder.',
   example: '@ 08:00\nabg 7.21/24/95/9.5',
   fix: READING_FIX,
 });

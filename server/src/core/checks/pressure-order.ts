@@ -5,7 +5,7 @@
  */
 import type { InputValue, Timepoint } from '../analysis/model';
 import { toRange } from '../syntax/tree';
-import { formatShort } from '../util/format';
+import { decimalsAgainst, formatShort } from '../util/format';
 import { defineCheck, type TimepointContext } from './check';
 
 function orderCheck(ctx: TimepointContext, lowId: string, highId: string, message: (low: number, high: number) => string): void {
@@ -38,8 +38,11 @@ function usableNumber(tp: Timepoint, id: string): { input: InputValue; value: nu
   return { input, value: input.stated.value };
 }
 
-const peepAbovePlateauMessage = (low: number, high: number): string => `PEEP ${formatShort(low)} is above the plateau pressure ${formatShort(high)} cmH2O; plateau pressure includes PEEP.`;
-const plateauAbovePeakMessage = (low: number, high: number): string => `Plateau pressure ${formatShort(low)} is above the peak pressure ${formatShort(high)} cmH2O; were they swapped?`;
+/** A pressure shown beside the one it exceeds, with the decimals that keep the two apart (10.04 above 10, never 10 above 10). */
+const above = (value: number, other: number): string => formatShort(value, decimalsAgainst(value, 2, other));
+
+const peepAbovePlateauMessage = (low: number, high: number): string => `PEEP ${above(low, high)} cmH2O is above the plateau pressure ${above(high, low)} cmH2O; plateau pressure includes PEEP.`;
+const plateauAbovePeakMessage = (low: number, high: number): string => `Plateau pressure ${above(low, high)} cmH2O is above the peak pressure ${above(high, low)} cmH2O; were they swapped?`;
 
 export const peepAbovePlateau = defineCheck({
   code: 'PN303',
@@ -98,7 +101,7 @@ export const systolicBelowDiastolic = defineCheck({
         const [a, b] = value.parts;
         ctx.report({
           range: toRange(s.line, value.span),
-          message: `Blood pressure ${value.text}: the systolic value is below the diastolic.`,
+          message: `Blood pressure ${value.text} mmHg: the systolic value is below the diastolic.`,
           fixes: a && b ? [{ title: `Swap to ${b.text}/${a.text}`, edits: [{ range: toRange(s.line, value.span), newText: `${b.text}/${a.text}` }] }] : [],
         });
       }

@@ -96,13 +96,13 @@ export const birthDate = privacyCheck('PN502', 'birth-date', 'birth-date', 'Date
   fires: 'A date (or a year) follows a birth cue: `DOB`, `D.O.B.`, `born`, `date of birth`, `birth date`. Numeric dates with a two-digit year (`12/03/61`) count only here; a written one (`12 Mar 61`) is a calendar date (PN503) without the cue.',
   example: 'note      DOB 12/03/1961',
   fix: `Remove it: the age on the \`patient\` line (\`patient age 64 y\`) is all a note needs. The quick fix writes \`[date of birth]\`. ${OFF}`,
-}, (m) => `\`${m.text}\` looks like a date of birth${after(m)}; write the age on the patient line instead (\`patient age 64 y\`).`);
+}, (m) => `\`${m.text}\` looks like a date of birth${after(m)}; write the age on the patient line instead (e.g. \`patient age 64 y\`).`);
 
 export const calendarDate = privacyCheck('PN503', 'calendar-date', 'calendar-date', 'Calendar date', {
   fires: 'Free text holds a calendar date: `2026-03-04`, `2026-03-04T08:00`, `04/03/2026`, `4.3.2026`, `20260304`, `4 March 2026`, `March 4, 2026`, `4th of March`, `Mar 2026`, `04-MAR-2026` (a month in capitals only with a year), `4 Mar 26`, `4-Mar-26` (a two-digit year after a day and a month, between blanks or hyphens, covered with them; not a time or a dose: `4 Mar 10:30`, `4 May 10 mg` cover the day and month only; after blanks a month in capitals takes it only after a birth cue). A full stop between a day and a month ends a sentence (`RR 24. May need NIV`). Numeric dates need a four-digit year from 1900 to 2099, so gases (`7.28/56/71`), pressures (`120/80`) and fractions (`3/7`) never count.',
   example: '@ day 2 08:00  seen in clinic on 4 March 2026',
   fix: `Write times relative to the note (\`@ day 2 08:00\`, \`@ +2h30\`): they keep dates of care out of shared notes. The quick fix writes \`[date]\`. ${OFF}`,
-}, (m) => `\`${m.text}\` is a calendar date; write a relative day instead (\`@ day 2 08:00\`), which keeps dates of care out of shared notes.`);
+}, (m) => `\`${m.text}\` is a calendar date; write a relative day instead (e.g. \`@ day 2 08:00\`), which keeps dates of care out of shared notes.`);
 
 export const phoneNumber = privacyCheck('PN504', 'phone-number', 'phone', 'Phone number', {
   fires: 'Digits in a phone shape: international (`+44 20 7946 0958`), an area code in parentheses (`(555) 010-1234`), a national number of 10 or 11 digits with a leading 0 (`020 7946 0958`, `07700 900123`, `07700900123`), 3-3-4 groups with hyphens or dots (`555-010-1234`), or 7 to 15 digits after `tel`, `phone`, `mobile`, `contact`, `fax`. Numbers followed by a unit (`250 500 1000 mL`) are quantities and never count without a cue.',

@@ -7,7 +7,7 @@ import { softBoundsAt, within } from '../analysis/bounds';
 import type { StatedValue } from '../analysis/model';
 import { fieldById, type Bounds, type FieldDef } from '../fields/registry';
 import { displayUnit } from '../analysis/read-value';
-import { convert, unitById } from '../fields/units';
+import { convert, unitById, type UnitDef } from '../fields/units';
 import { toRange } from '../syntax/tree';
 import { formatAgainst } from '../util/format';
 import { defineCheck, type CheckContext, type CheckDef } from './check';
@@ -32,8 +32,23 @@ function valueCheck(test: (ctx: CheckContext, stated: StatedValue, barometricMmh
   };
 }
 
+/** The unit a value was read in, as a message writes it after a number: ` mmHg`, ` /min`; none for pH or a fraction. */
+function unitSuffix(field: FieldDef, s: StatedValue): string {
+  const unit = readUnitOf(field, s);
+  return unit && unit.id !== 'fraction' && unit.id !== 'ph' ? ` ${displayUnit(unit.id)}` : '';
+}
+
+function readUnitOf(field: FieldDef, s: StatedValue): UnitDef | undefined {
+  return unitById(s.readUnit ?? field.unit ?? '') ?? unitById(field.unit ?? '');
+}
+
+/** `Sodium 250 mmol/L`: the value as written, with the unit it was read in (written or implied). */
+function asWritten(field: FieldDef, s: StatedValue): string {
+  return `${field.label} ${s.item.value?.text ?? ''}${unitSuffix(field, s)}`;
+}
+
 function describe(bounds: Bounds, field: FieldDef, s: StatedValue): string {
-  const unit = unitById(s.readUnit ?? field.unit ?? '') ?? unitById(field.unit ?? '');
+  const unit = readUnitOf(field, s);
   const canonical = unitById(field.unit ?? '');
   const inRead = (v: number) => (unit && canonical ? convert(v, canonical, unit) : v) ?? v;
   // The value as written, so that each bound keeps it on its side: a height of 47.1 in is not
@@ -42,7 +57,7 @@ function describe(bounds: Bounds, field: FieldDef, s: StatedValue): string {
   const second = s.parts && s.parts.length > 1 ? inRead(s.parts[1]!) : NaN;
   const show = (v: number) => {
     const bound = inRead(v);
-    return `${formatAgainst(bound, field.decimals, first, second)}${unit && unit.id !== 'fraction' && unit.id !== 'ph' ? ` ${displayUnit(unit.id)}` : ''}`;
+    return `${formatAgainst(bound, field.decimals, first, second)}${unitSuffix(field, s)}`;
   };
   if (bounds.min !== undefined && bounds.max !== undefined) return `${show(bounds.min)} to ${show(bounds.max)}`;
   if (bounds.min !== undefined) return `at least ${show(bounds.min)}`;
@@ -81,7 +96,7 @@ export const impossibleValue = defineCheck({
     if (!outOfBounds(stated, field.hard)) return;
     ctx.report({
       range: toRange(stated.line, stated.item.value?.span ?? stated.item.span),
-      message: `${field.label} ${stated.item.value?.text ?? ''} is impossible (expected ${describe(field.hard, field, stated)}); it is not used in calculations.`,
+      message: `${asWritten(field, stated)} is impossible (expected ${describe(field.hard, field, stated)}); it is not used in calculations.`,
     });
   }),
 });
@@ -106,7 +121,7 @@ export const unusualValue = defineCheck({
     if (!outOfBounds(stated, soft)) return;
     ctx.report({
       range: toRange(stated.line, stated.item.value?.span ?? stated.item.span),
-      message: `${field.label} ${stated.item.value?.text ?? ''} is unusual (usually ${describe(soft ?? {}, field, stated)}): check the unit and the transcription.`,
+      message: `${asWritten(field, stated)} is unusual (usually ${describe(soft ?? {}, field, stated)}): check the unit and the transcription.`,
     });
   }),
 });
@@ -147,11 +162,26 @@ export const fio2OutOfRange = defineCheck({
   ...valueCheck((ctx, stated) => {
     if (stated.fieldId !== 'fio2' || stated.value === null) return;
     if (stated.value >= 0.21 - 1e-9 && stated.value <= 1 + 1e-9) return;
-    const written = stated.item.value?.text ?? '';
-    const reading = stated.readUnit === '%' ? `${written} %` : written;
     ctx.report({
       range: toRange(stated.line, stated.item.value?.span ?? stated.item.span),
-      message: `FiO2 ${reading} is ${stated.value < 0.21 ? 'below 0.21 (room air)' : 'above 1.0 (pure oxygen)'}; it is not used in calculations.`,
+      message: `${fio2AsRead(stated)} is ${fio2Limit(stated)}; it is not used in calculations.`,
     });
   }),
 });
+
+/**
+ * `FiO2 0.2`, `FiO2 40 %`, or for a bare number read as a percentage `FiO2 4 (read as 4 %)`: the
+ * reading of a bare number is the likeliest surprise behind this finding.
+ */
+function fio2AsRead(s: StatedValue): string {
+  const written = s.item.value?.text ?? '';
+  if (s.readUnit !== '%') return `FiO2 ${written}`;
+  return s.unitImplied ? `FiO2 ${written} (read as ${written} %)` : `FiO2 ${written} %`;
+}
+
+/** The limit crossed, in the unit the value was read in: a percentage is compared with 21 % and 100 %. */
+function fio2Limit(s: StatedValue): string {
+  const percent = s.readUnit === '%';
+  if ((s.value ?? 0) < 0.21) return percent ? 'below 21 % (room air)' : 'below 0.21 (room air)';
+  return percent ? 'above 100 % (pure oxygen)' : 'above 1.0 (pure oxygen)';
+}

@@ -68,7 +68,7 @@ export const drivingPressureHigh = defineCheck({
     example: '@ 08:00\nvent peep 8, plateau 27',
     fix: 'Confirm plateau and PEEP; a clinical review decides what follows.',
   },
-  source: `${SOURCES['amato-2015']}; the 15 cmH2O flag is common practice, no source`,
+  source: `${SOURCES['amato-2015']} The 15 cmH2O flag is common practice, no source.`,
   runTimepoint(ctx) {
     derivedAbove(ctx, 'driving_pressure', DRIVING_PRESSURE_LIMIT_CMH2O, 'plateau', (v) => `Driving pressure is ${formatAgainst(v, 0, DRIVING_PRESSURE_LIMIT_CMH2O)} cmH2O (plateau − PEEP), above ${DRIVING_PRESSURE_LIMIT_CMH2O} cmH2O.`);
   },

@@ -63,7 +63,7 @@ export const hco3Gap = defineDerived({
   decimals: 1,
   category: 'acid-base',
   formula: '{HCO3} − {HCO3 calc}',
-  source: `${SOURCES['henderson-hasselbalch']}; tolerance: ${SOURCES['pneumark-consistency-tolerance']}`,
+  source: `${SOURCES['henderson-hasselbalch']} ${SOURCES['pneumark-consistency-tolerance']}`,
   anchors: ['hco3'],
   compute(c) {
     const reported = c.field('hco3', 'HCO3');
@@ -139,7 +139,7 @@ export const paco2Expected = defineDerived({
   decimals: 0,
   category: 'acid-base',
   formula: '1.5 × {HCO3} + 8 ± 2',
-  source: `${SOURCES['winters-1967']} (acidosis); ${SOURCES['berend-2014']} (alkalosis)`,
+  source: `Acidosis: ${SOURCES['winters-1967']} Alkalosis: ${SOURCES['berend-2014']}`,
   anchors: ['ph', 'hco3'],
   compute(c) {
     const cls = classification(c);
@@ -166,7 +166,7 @@ function respiratoryExpected(chronicity: 'acute' | 'chronic') {
     decimals: 0,
     category: 'acid-base',
     formula: chronicity === 'acute' ? '24 + (+1 acidosis | −2 alkalosis) × ({PaCO2} − 40) ÷ 10 ± 2' : '24 + (+3.5…+5 acidosis | −4…−5 alkalosis) × ({PaCO2} − 40) ÷ 10 ± 2',
-    source: `${SOURCES['narins-emmett-1980']}; ${SOURCES['adrogue-madias-2010']}`,
+    source: `${SOURCES['narins-emmett-1980']} ${SOURCES['adrogue-madias-2010']}`,
     anchors: ['ph', 'paco2'],
     compute(c) {
       const cls = classification(c);

@@ -13,7 +13,7 @@ export const barometric = defineDerived({
   decimals: 0,
   category: 'atmosphere',
   formula: '{PB}',
-  source: `stated, or from altitude: ${SOURCES['west-1996']} (default model) or ${SOURCES['us-standard-atmosphere-1976']}`,
+  source: `Stated, or estimated from the altitude. Default model: ${SOURCES['west-1996']} Other model: ${SOURCES['us-standard-atmosphere-1976']}`,
   anchors: ['barometric', 'altitude', 'pao2'],
   compute(c) {
     const stated = c.field('barometric', 'PB');
@@ -90,7 +90,7 @@ export const pio2 = defineDerived({
   decimals: 0,
   category: 'atmosphere',
   formula: '{FiO2} × ({PB} − {PH2O})',
-  source: `${SOURCES['inspired-po2']}; with the setting waterVapour: body-temperature, the saturated water vapour pressure at the temperature stated: ${SOURCES['buck-1981']}`,
+  source: `${SOURCES['inspired-po2']} With the setting waterVapour: body-temperature, the saturated water vapour pressure at the temperature stated: ${SOURCES['buck-1981']}`,
   anchors: ['pao2', 'fio2', 'altitude', 'barometric'],
   compute(c) {
     const fio2 = c.fio2();

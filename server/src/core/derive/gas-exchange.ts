@@ -186,7 +186,7 @@ export const roxIndexDef = defineDerived({
   decimals: 2,
   category: 'oxygenation',
   formula: '({SpO2} ÷ {FiO2}) ÷ {RR}',
-  source: `${SOURCES['roca-2016']}; ${SOURCES['roca-2019']}`,
+  source: `${SOURCES['roca-2016']} ${SOURCES['roca-2019']}`,
   anchors: ['spo2', 'rr'],
   compute(c) {
     const device = c.word('device');
@@ -207,7 +207,7 @@ export const oxygenationIndexDef = defineDerived({
   decimals: 1,
   category: 'oxygenation',
   formula: '{FiO2} × {MAP} × 100 ÷ {PaO2}',
-  source: `${SOURCES['ortiz-1987']}; ${SOURCES['palicc-2015']}`,
+  source: `${SOURCES['ortiz-1987']} ${SOURCES['palicc-2015']}`,
   anchors: ['pao2', 'mean_airway_pressure'],
   compute(c) {
     const fio2 = c.fio2();

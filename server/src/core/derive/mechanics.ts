@@ -206,7 +206,7 @@ export const ventilatoryRatioDef = defineDerived({
   decimals: 2,
   category: 'mechanics',
   formula: '{VE} × 1000 × {PaCO2} ÷ ({PBW} × 100 × 37.5)',
-  source: `${SOURCES['sinha-2009']}; ${SOURCES['sinha-2019']}`,
+  source: `${SOURCES['sinha-2009']} ${SOURCES['sinha-2019']}`,
   anchors: ['paco2'],
   compute(c) {
     if (!c.field('vt') && !c.field('minute_volume')) return { kind: 'na', reason: 'needs ventilation (vt and rate, or measured ve)' };

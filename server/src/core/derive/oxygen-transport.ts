@@ -51,7 +51,7 @@ export const fio2Estimated = defineDerived({
   decimals: 2,
   category: 'oxygenation',
   formula: '0.21 + 0.04 × {flow}',
-  source: `${SOURCES['nasal-cannula-fio2']}; ${SOURCES['simple-mask-fio2']}`,
+  source: `${SOURCES['nasal-cannula-fio2']} ${SOURCES['simple-mask-fio2']}`,
   anchors: ['device', 'o2_flow'],
   compute(c) {
     const device = c.word('device');

@@ -46,3 +46,13 @@ export function rangeAgainst(low: number, high: number, decimals: number, observ
   const d = Math.max(decimalsAgainst(low, decimals, observed), decimalsAgainst(high, decimals, observed));
   return `${formatNumber(low, d)}–${formatNumber(high, d)}`;
 }
+
+/**
+ * `a`, `a and b`, `a, b and c`: a list as a sentence writes it, each item once (`or` for choices:
+ * `mmHg or kPa`).
+ */
+export function wordList(items: readonly string[], last: 'and' | 'or' = 'and'): string {
+  const once = [...new Set(items)];
+  if (once.length <= 1) return once[0] ?? '';
+  return `${once.slice(0, -1).join(', ')} ${last} ${once[once.length - 1]}`;
+}
