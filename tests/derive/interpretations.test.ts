@@ -12,18 +12,18 @@ const DELTA = 'Rastegar A. JASN 2007;18:2429–2431 (from memory): delta ratio b
 
 const rows: { name: string; gas: string; reading: RegExp; source: string }[] = [
   { name: 'metabolic acidosis, compensated (HCO3 10 → PaCO2 21–25)', gas: 'abg 7.25/23/95/10', reading: /^Consistent with metabolic acidosis, with the expected respiratory response \(PaCO2 21–25 mmHg\)\.$/, source: WINTERS },
-  { name: 'metabolic acidosis with an added respiratory acidosis', gas: 'abg 7.07/35/95/10', reading: /metabolic acidosis; PaCO2 35 is above the expected 21–25 mmHg: suspect an added respiratory acidosis\.$/, source: WINTERS },
-  { name: 'metabolic acidosis with an added respiratory alkalosis', gas: 'abg 7.36/18/95/10', reading: /metabolic acidosis; PaCO2 18 is below the expected 21–25 mmHg: suspect an added respiratory alkalosis\.$/, source: WINTERS },
+  { name: 'metabolic acidosis with an added respiratory acidosis', gas: 'abg 7.07/35/95/10', reading: /metabolic acidosis; PaCO2 35 mmHg is above the expected 21–25 mmHg: consistent with an added respiratory acidosis\.$/, source: WINTERS },
+  { name: 'metabolic acidosis with an added respiratory alkalosis', gas: 'abg 7.36/18/95/10', reading: /metabolic acidosis; PaCO2 18 mmHg is below the expected 21–25 mmHg: consistent with an added respiratory alkalosis\.$/, source: WINTERS },
   { name: 'metabolic alkalosis, compensated (HCO3 34 → PaCO2 45–49)', gas: 'abg 7.47/47/95/34', reading: /^Consistent with metabolic alkalosis, with the expected respiratory response \(PaCO2 45–49 mmHg\)\.$/, source: ALKALOSIS_RULE },
   { name: 'acute respiratory acidosis (PaCO2 60, HCO3 26: +1 per 10)', gas: 'abg 7.25/60/70/26', reading: /^Consistent with acute respiratory acidosis\.$/, source: RESPIRATORY },
   { name: 'chronic respiratory acidosis (PaCO2 60, HCO3 32: +3.5 to +5 per 10)', gas: 'abg 7.34/60/70/32', reading: /^Consistent with chronic respiratory acidosis\.$/, source: RESPIRATORY },
   { name: 'acute respiratory alkalosis (PaCO2 25, HCO3 21.5: −2 per 10)', gas: 'abg 7.55/25/95/21.5', reading: /^Consistent with acute respiratory alkalosis\.$/, source: RESPIRATORY },
   { name: 'chronic respiratory alkalosis, pH back in range', gas: 'abg 7.43/25/95/16.5', reading: /^Consistent with a fully compensated chronic respiratory alkalosis\.$/, source: RESPIRATORY },
-  { name: 'respiratory acidosis with HCO3 beyond the chronic range (PaCO2 80, HCO3 47)', gas: 'abg 7.38/80/60/47', reading: /respiratory acidosis; HCO3 47\.0 is outside the expected .* mmol\/L: suspect an added metabolic alkalosis\.$/, source: RESPIRATORY },
-  { name: 'metabolic alkalosis with PaCO2 above its expected range', gas: 'abg 7.44/60/70/39.5', reading: /metabolic alkalosis; PaCO2 60 is above the expected 49–53 mmHg: suspect an added respiratory acidosis\.$/, source: ALKALOSIS_RULE },
+  { name: 'respiratory acidosis with HCO3 beyond the chronic range (PaCO2 80, HCO3 47)', gas: 'abg 7.38/80/60/47', reading: /respiratory acidosis; HCO3 47\.0 mmol\/L is outside the expected \d+–\d+ mmol\/L \(acute\) and \d+–\d+ mmol\/L \(chronic\): consistent with an added metabolic alkalosis\.$/, source: RESPIRATORY },
+  { name: 'metabolic alkalosis with PaCO2 above its expected range', gas: 'abg 7.44/60/70/39.5', reading: /metabolic alkalosis; PaCO2 60 mmHg is above the expected 49–53 mmHg: consistent with an added respiratory acidosis\.$/, source: ALKALOSIS_RULE },
   { name: 'mixed metabolic and respiratory acidosis', gas: 'abg 7.13/55/70/18', reading: /^Consistent with a mixed metabolic and respiratory acidosis\.$/, source: 'both components beyond their reference intervals (common practice, no source)' },
   { name: 'normal gas', gas: 'abg 7.40/40/95/24.4', reading: /^Consistent with normal acid–base balance\.$/, source: 'reference intervals pH 7.35–7.45, PaCO2 35–45, HCO3 22–26 (common practice, no source)' },
-  { name: 'high-gap acidosis with a hidden metabolic alkalosis (delta ratio 3.3)', gas: 'abg 7.33/38/95/20\nlabs na 140, cl 95, hco3 20', reading: /metabolic acidosis with a high anion gap, with the expected respiratory response \(PaCO2 36–40 mmHg\); suspected additional metabolic alkalosis\.$/, source: DELTA },
+  { name: 'high-gap acidosis with a hidden metabolic alkalosis (delta ratio 3.3)', gas: 'abg 7.33/38/95/20\nlabs na 140, cl 95, hco3 20', reading: /metabolic acidosis with a high anion gap, with the expected respiratory response \(PaCO2 36–40 mmHg\); also consistent with an added metabolic alkalosis\.$/, source: DELTA },
   { name: 'the delta ratio of the reading takes the serum HCO3 the gap was computed with (AG 22.5, Δ (22.5 − 12) ÷ (24 − 17.5) = 1.6, not the gas HCO3 19.5, which gives 2.3)', gas: 'abg 7.33/38/90/19.5\nlabs na 140, cl 100, hco3 17.5', reading: /^Consistent with metabolic acidosis with a high anion gap, with the expected respiratory response \(PaCO2 35–39 mmHg\)\.$/, source: DELTA },
   { name: 'normal-gap acidosis (anion gap 10)', gas: 'abg 7.28/26/95/12\nlabs na 140, cl 118, hco3 12', reading: /^Consistent with metabolic acidosis with a normal anion gap, with the expected respiratory response/, source: 'anion gap = Na − (Cl + HCO3), normal about 12 (common practice, no source)' },
 ];
@@ -45,7 +45,7 @@ describe('oxygenation, ventilation and respiratory failure', () => {
     expect(r.oxygenation).toMatch(/consistent with moderate hypoxaemia/);
     expect(r.ventilation).toMatch(/consistent with hypercapnia/);
     expect(r['respiratory-failure']).toBe('Consistent with type 2 (hypercapnic) respiratory failure: hypoxaemia with hypercapnia.');
-    expect(r['hypoxaemia-mechanism']).toMatch(/^Hypoxaemia consistent with hypoventilation \(PaCO2 70 mmHg\)\. The A–a gradient \(\d mmHg\) is within the age-based normal of 14\.$/);
+    expect(r['hypoxaemia-mechanism']).toMatch(/^Hypoxaemia consistent with hypoventilation \(PaCO2 70 mmHg\)\. The A–a gradient \(\d mmHg\) is within the age-based normal of 14 mmHg\.$/);
   });
 
   it('reads hypoxaemia at altitude with low PaCO2 as type 1 failure with a normal gradient', () => {
@@ -54,13 +54,13 @@ describe('oxygenation, ventilation and respiratory failure', () => {
     // from memory). HCO3 here is chosen to fit pH and PaCO2.
     const r = readings('patient age 35 y\nplace barometric 272 mmHg\n@ 08:00\noxygen room air\nabg ph 7.53, pco2 13.3, po2 24.6, hco3 11');
     expect(r['respiratory-failure']).toBe('Consistent with type 1 (hypoxaemic) respiratory failure: hypoxaemia with normal or low PaCO2.');
-    expect(r['hypoxaemia-mechanism']).toMatch(/^Hypoxaemia consistent with low inspired oxygen \(PiO2 47 mmHg\)\. The A–a gradient \(6 mmHg\) is within the age-based normal of 13\./);
+    expect(r['hypoxaemia-mechanism']).toMatch(/^Hypoxaemia consistent with low inspired oxygen \(PiO2 47 mmHg\)\. The A–a gradient \(6 mmHg\) is within the age-based normal of 13 mmHg\./);
     expect(r.ventilation).toMatch(/consistent with hypocapnia/);
   });
 
   it('reads a raised gradient on air as V/Q mismatch, shunt or diffusion limit', () => {
     const r = readings('patient age 60 y\n@ 08:00\noxygen room air\nabg 7.46/32/52/22.7');
-    expect(r['hypoxaemia-mechanism']).toMatch(/^Hypoxaemia consistent with a raised A–a gradient \(58 mmHg, above 19\): V\/Q mismatch, shunt or a diffusion limit\.$/);
+    expect(r['hypoxaemia-mechanism']).toMatch(/^Hypoxaemia consistent with a raised A–a gradient \(58 mmHg, above 19 mmHg\): V\/Q mismatch, shunt or a diffusion limit\.$/);
   });
 
   it('reads hypercapnia held up by oxygen as type 2 failure', () => {
@@ -71,20 +71,20 @@ describe('oxygenation, ventilation and respiratory failure', () => {
   it('names the Berlin oxygenation band only with PEEP or CPAP ≥ 5 cmH2O, and never as a diagnosis', () => {
     // Bands: ARDS Definition Task Force, JAMA 2012;307:2526–2533 (from memory).
     const withPeep = readings('@ 08:00\nvent peep 10, fio2 0.6\nabg 7.38/42/90/24');
-    expect(withPeep['oxygenation-band']).toMatch(/^P\/F 150 with PEEP 10 cmH2O: consistent with the 100–200 oxygenation band .* — an oxygenation band, not a diagnosis\.$/);
+    expect(withPeep['oxygenation-band']).toMatch(/^P\/F 150 mmHg with PEEP 10 cmH2O: consistent with the 100–200 mmHg oxygenation band .* — an oxygenation band, not a diagnosis\.$/);
     expect(readings('@ 08:00\nvent peep 4, fio2 0.6\nabg 7.38/42/90/24')['oxygenation-band']).toBeUndefined();
     expect(readings('@ 08:00\noxygen cpap 8, fio2 0.5\nabg 7.38/42/90/24')['oxygenation-band']).toMatch(/with CPAP 8 cmH2O: consistent with the 100–200/);
   });
 
   it('puts a P/F of exactly 200 in the 100–200 band although 114 / 0.57 is 200.00000000000003 in floating point (Berlin: 100 < P/F ≤ 200; JAMA 2012, from memory)', () => {
     const r = readings('@ 08:00\nvent peep 8, fio2 0.57\nabg 7.38/42/114/24');
-    expect(r['oxygenation-band']).toMatch(/^P\/F 200 with PEEP 8 cmH2O: consistent with the 100–200 oxygenation band/);
+    expect(r['oxygenation-band']).toMatch(/^P\/F 200 mmHg with PEEP 8 cmH2O: consistent with the 100–200 mmHg oxygenation band/);
   });
 
   it('uses the altitude-adjusted P/F for the band below sea-level pressure (× PB/760)', () => {
     const r = readings('place barometric 600\n@ 08:00\nvent peep 8, fio2 0.4\nabg 7.40/40/100/24.4');
     // P/F 250 × 600/760 = 197 → the 100–200 band.
-    expect(r['oxygenation-band']).toMatch(/^P\/F 197 \(adjusted for altitude\)/);
+    expect(r['oxygenation-band']).toMatch(/^P\/F 197 mmHg \(adjusted for altitude\)/);
   });
 
   it('follows the threshold settings', () => {
@@ -100,6 +100,25 @@ describe('oxygenation, ventilation and respiratory failure', () => {
     for (const n of notes) {
       for (const text of Object.values(readings(`@ 08:00\noxygen room air\n${n}`))) {
         expect(text).toMatch(/consistent with|not consistent|not interpreted|not assessed/i);
+      }
+    }
+  });
+
+  it('never words a reading as a suspicion or a diagnosis, and gives every limit its unit', () => {
+    const notes = [
+      ...rows.map((r) => `@ 08:00\noxygen room air\n${r.gas}`),
+      'patient age 60 y\n@ 08:00\noxygen room air\nabg 7.46/32/52/22.7',
+      'place altitude 4500 m\n@ 08:00\noxygen room air\nabg 7.47/27/33/19.5',
+      '@ 08:00\nvent peep 10, fio2 0.8\nabg 7.29/49/74/23',
+      'units gas kPa\n@ 08:00\nvent peep 8, fio2 0.3\nabg 7.28/9.1/7.9/31.5',
+      'units gas kPa\n@ 08:00\nabg 7.07/4.7/12.7/10',
+    ];
+    for (const n of notes) {
+      for (const text of Object.values(readings(n))) {
+        expect(text).not.toMatch(/suspect|diagnosis of|patient has|\bis ARDS\b/i);
+        // A limit or a P/F is never a bare number: `above 19 mmHg`, `P/F 93 mmHg`, `normal of 14 mmHg`.
+        expect(text).not.toMatch(/(?:above|below|normal of) \d+(?:\.\d+)?(?! ?(?:mmHg|kPa|mmol\/L|cmH2O|\d|\.\d))/);
+        expect(text).not.toMatch(/P\/F \d+(?:\.\d+)?(?! ?(?:mmHg|kPa|\d|\.\d))/);
       }
     }
   });

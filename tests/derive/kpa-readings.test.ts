@@ -21,7 +21,7 @@ describe('readings in a kPa note', () => {
   it('give an expected PaCO2 range in kPa', () => {
     // HCO3 15 → 1.5 × 15 + 8 ± 2 = 28.5–32.5 mmHg = 3.8–4.3 kPa; 4.4 kPa (33 mmHg) is above it.
     const r = readings('units gas kPa\n@ 08:00\noxygen room air\nabg ph 7.27, pco2 4.4, po2 12.7, hco3 15');
-    expect(r['acid-base']).toMatch(/PaCO2 4\.4 kPa \(33 mmHg\) is above the expected 3\.8–4\.3 kPa: suspect an added respiratory acidosis\.$/);
+    expect(r['acid-base']).toMatch(/PaCO2 4\.4 kPa \(33 mmHg\) is above the expected 3\.8–4\.3 kPa: consistent with an added respiratory acidosis\.$/);
   });
 
   it('leave an mmHg note as it was', () => {

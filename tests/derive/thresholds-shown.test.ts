@@ -37,7 +37,7 @@ describe('readings and checks', () => {
   it('shows the ends of an expected range with the decimals that keep the observed value outside it', () => {
     // HCO3 15 → PaCO2 expected 1.5 × 15 + 8 ± 2 = 28.5–32.5; an observed 33 is above it.
     const r = readings('@ 08:00\noxygen room air\nabg ph 7.27, pco2 33, po2 95, hco3 15');
-    expect(r['acid-base']).toMatch(/PaCO2 33 is above the expected 28\.5–32\.5 mmHg: suspect an added respiratory acidosis\.$/);
+    expect(r['acid-base']).toMatch(/PaCO2 33 mmHg is above the expected 28\.5–32\.5 mmHg: consistent with an added respiratory acidosis\.$/);
   });
 
   it('shows the bounds of an unusual value in another unit with the decimals that keep the value outside them', () => {

@@ -118,14 +118,14 @@ describe('which hints are given', () => {
 describe('acidBaseLabel', () => {
   it('writes a compact form from the classification words', () => {
     expect(acidBaseLabel('Consistent with acute respiratory acidosis.')).toBe('resp. acidosis, acute');
-    expect(acidBaseLabel('Consistent with acute respiratory acidosis; suspected additional metabolic acidosis.')).toBe('resp. acidosis, acute + met. acidosis');
+    expect(acidBaseLabel('Consistent with acute respiratory acidosis; also consistent with an added metabolic acidosis.')).toBe('resp. acidosis, acute + met. acidosis');
     expect(acidBaseLabel('Consistent with metabolic acidosis with a high anion gap; with the expected respiratory response (PaCO2 30–34 mmHg).')).toBe('met. acidosis, high AG');
     expect(acidBaseLabel('Consistent with a fully compensated chronic respiratory acidosis.')).toBe('resp. acidosis, chronic, compensated');
     expect(acidBaseLabel('Consistent with respiratory acidosis; between the acute and chronic ranges (evolving, or acute on chronic).')).toBe('resp. acidosis, acute on chronic?');
-    expect(acidBaseLabel('Consistent with metabolic acidosis; PaCO2 48 is above the expected 30–34 mmHg: suspect an added respiratory acidosis.')).toBe('met. acidosis + resp. acidosis?');
+    expect(acidBaseLabel('Consistent with metabolic acidosis; PaCO2 48 mmHg is above the expected 30–34 mmHg: consistent with an added respiratory acidosis.')).toBe('met. acidosis + resp. acidosis?');
     expect(acidBaseLabel('Consistent with a mixed metabolic and respiratory acidosis.')).toBe('mixed acidosis');
     expect(acidBaseLabel('Acid–base reading undetermined: the pH does not follow the PaCO2 and HCO3.')).toBe('acid–base unclear');
-    expect(acidBaseLabel('Consistent with normal acid–base balance; suspected additional metabolic acidosis and metabolic alkalosis.')).toBe('normal pH + met. acidosis + met. alkalosis');
+    expect(acidBaseLabel('Consistent with normal acid–base balance; also consistent with an added metabolic acidosis and metabolic alkalosis.')).toBe('normal pH + met. acidosis + met. alkalosis');
     expect(acidBaseLabel('Nothing to say here.')).toBeNull();
   });
 });

@@ -50,20 +50,15 @@ class GasWords {
     return `${formatAgainst(kpaFromMmhg(mmHg), KPA_DECIMALS, kpaFromMmhg(t1), kpaFromMmhg(t2), kpaFromMmhg(t3))} kPa (${inMmhg})`;
   }
 
-  /** A pressure where the unit follows elsewhere: `33`, or `4.4 kPa (33 mmHg)`. */
-  observed(mmHg: number, t1 = NaN): string {
-    return this.kpa ? this.value(mmHg, t1) : formatAgainst(mmHg, 0, t1);
-  }
-
   /** A threshold read against `value`: `60 mmHg`, or `8.0 kPa`. */
   threshold(mmHg: number, value = NaN): string {
     if (!this.kpa) return `${formatShort(mmHg)} mmHg`;
     return `${formatAgainst(kpaFromMmhg(mmHg), KPA_DECIMALS, kpaFromMmhg(value))} kPa`;
   }
 
-  /** A limit's number alone, read against `value`: `40`, `13`, or `5.3`. */
-  number(mmHg: number, value = NaN): string {
-    return this.kpa ? formatAgainst(kpaFromMmhg(mmHg), KPA_DECIMALS, kpaFromMmhg(value)) : formatAgainst(mmHg, 0, value);
+  /** A limit read against `value`, with the decimals of the values it limits: `13 mmHg`, or `2.9 kPa`. */
+  limit(mmHg: number, value = NaN): string {
+    return this.kpa ? `${formatAgainst(kpaFromMmhg(mmHg), KPA_DECIMALS, kpaFromMmhg(value))} kPa` : `${formatAgainst(mmHg, 0, value)} mmHg`;
   }
 
   /** A range with its unit, ends shown against `observed`: `28.5–32.5 mmHg`, or `3.8–4.3 kPa`. */
@@ -98,9 +93,9 @@ export function interpret(c: DeriveContext, settings: Settings): Interpretation[
     const hypoxaemiaAt = settings.hypoxaemiaBelowMmhg;
     if (hypoxaemic) {
       const grade = pao2.value < SEVERE_HYPOXAEMIA_MMHG ? 'severe' : 'moderate';
-      push('oxygenation', `PaO2 ${gas.value(pao2.value, hypoxaemiaAt, SEVERE_HYPOXAEMIA_MMHG)}: consistent with ${grade} hypoxaemia (below ${gas.threshold(hypoxaemiaAt, pao2.value)}${grade === 'severe' ? `, and below ${gas.number(SEVERE_HYPOXAEMIA_MMHG, pao2.value)}` : ''})${onOxygen ? ` despite FiO2 ${formatNumber(fio2.value, 2)}` : ''}.`, ['pao2']);
+      push('oxygenation', `PaO2 ${gas.value(pao2.value, hypoxaemiaAt, SEVERE_HYPOXAEMIA_MMHG)}: consistent with ${grade} hypoxaemia (below ${gas.threshold(hypoxaemiaAt, pao2.value)}${grade === 'severe' ? `, and below ${gas.threshold(SEVERE_HYPOXAEMIA_MMHG, pao2.value)}` : ''})${onOxygen ? ` despite FiO2 ${formatNumber(fio2.value, 2)}` : ''}.`, ['pao2']);
     } else if (onOxygen && pf && forBand(pf.value) <= 300) {
-      push('oxygenation', `PaO2 ${gas.value(pao2.value, hypoxaemiaAt)} on FiO2 ${formatNumber(fio2.value, 2)} (P/F ${gas.kpa ? `${kpaNumber(pf.value)} kPa, ` : ''}${formatAgainst(pf.value, 0, 300)}${gas.kpa ? ' mmHg' : ''}): consistent with impaired oxygenation supported by oxygen.`, ['pao2', 'pf_ratio']);
+      push('oxygenation', `PaO2 ${gas.value(pao2.value, hypoxaemiaAt)} on FiO2 ${formatNumber(fio2.value, 2)} (P/F ${gas.kpa ? `${kpaNumber(pf.value)} kPa, ` : ''}${formatAgainst(pf.value, 0, 300)} mmHg): consistent with impaired oxygenation supported by oxygen.`, ['pao2', 'pf_ratio']);
     } else if (pao2.value < LOW_NORMAL_PAO2_MMHG) {
       push('oxygenation', `PaO2 ${gas.value(pao2.value, hypoxaemiaAt, LOW_NORMAL_PAO2_MMHG)}: consistent with mildly reduced oxygenation, above the hypoxaemia threshold of ${gas.threshold(hypoxaemiaAt, pao2.value)}.`, ['pao2'], false);
     } else {
@@ -114,9 +109,9 @@ export function interpret(c: DeriveContext, settings: Settings): Interpretation[
       const band = berlinOxygenationBand(pfForBand.value);
       if (band) {
         const words = band === 'pf-200-to-300' ? '200–300' : band === 'pf-100-to-200' ? '100–200' : '≤ 100';
-        // The bands are defined in mmHg: a kPa note gets the P/F in both units and the band's unit named.
-        const pfShown = formatAgainst(pfForBand.value, 0, 100, 200, 300);
-        push('oxygenation-band', `P/F ${gas.kpa ? `${kpaNumber(pfForBand.value)} kPa (${pfShown} mmHg)` : pfShown}${adjusted ? ' (adjusted for altitude)' : ''} with ${peep.name} ${formatAgainst(peep.value, 0, BERLIN_MIN_PEEP_CMH2O)} cmH2O: consistent with the ${words}${gas.kpa ? ' mmHg' : ''} oxygenation band of the Berlin definition (the band called ${BERLIN_BAND_SEVERITY[band]} there) — an oxygenation band, not a diagnosis.`, [adjusted ? 'pf_ratio_altitude_adjusted' : 'pf_ratio', peep.fieldId ?? 'peep']);
+        // The bands are defined in mmHg: a kPa note gets the P/F in both units.
+        const pfShown = `${formatAgainst(pfForBand.value, 0, 100, 200, 300)} mmHg`;
+        push('oxygenation-band', `P/F ${gas.kpa ? `${kpaNumber(pfForBand.value)} kPa (${pfShown})` : pfShown}${adjusted ? ' (adjusted for altitude)' : ''} with ${peep.name} ${formatAgainst(peep.value, 0, BERLIN_MIN_PEEP_CMH2O)} cmH2O: consistent with the ${words} mmHg oxygenation band of the Berlin definition (the band called ${BERLIN_BAND_SEVERITY[band]} there) — an oxygenation band, not a diagnosis.`, [adjusted ? 'pf_ratio_altitude_adjusted' : 'pf_ratio', peep.fieldId ?? 'peep']);
       }
     }
   }
@@ -178,7 +173,7 @@ function mechanism(c: DeriveContext, settings: Settings, line: number | null, ga
   if (paco2.value > settings.hypercapniaAboveMmhg) causes.push(`hypoventilation (PaCO2 ${gas.value(paco2.value, settings.hypercapniaAboveMmhg)})`);
   const raised = gradient.value > limit;
   const gradientShown = gas.value(gradient.value, limit);
-  const limitShown = gas.number(limit, gradient.value);
+  const limitShown = gas.limit(limit, gradient.value);
   if (raised) causes.push(`a raised A–a gradient (${gradientShown}, above ${limitShown}): V/Q mismatch, shunt or a diffusion limit`);
   const normalGradient = raised ? '' : ` The A–a gradient (${gradientShown}) is within the ${upper ? 'age-based ' : ''}normal of ${limitShown}${upper ? '' : ' (age unknown)'}.`;
   const onOxygen = (c.fio2()?.value ?? 0.21) > 0.21 + 1e-9;
@@ -212,15 +207,15 @@ function acidBaseText(cls: AcidBaseClassification, gas: GasWords): string {
     const o = exp.observed;
     const range = gas.range(exp.range.low, exp.range.high, o);
     if (cls.compensation === 'appropriate') parts[0] += `, with the expected respiratory response (PaCO2 ${range})`;
-    else if (o > exp.range.high) { parts.push(`PaCO2 ${gas.observed(o, exp.range.high)} is above the expected ${range}: suspect an added respiratory acidosis`); named.add('respiratory-acidosis'); }
-    else if (o < exp.range.low) { parts.push(`PaCO2 ${gas.observed(o, exp.range.low)} is below the expected ${range}: suspect an added respiratory alkalosis`); named.add('respiratory-alkalosis'); }
+    else if (o > exp.range.high) { parts.push(`PaCO2 ${gas.value(o, exp.range.high)} is above the expected ${range}: consistent with an added respiratory acidosis`); named.add('respiratory-acidosis'); }
+    else if (o < exp.range.low) { parts.push(`PaCO2 ${gas.value(o, exp.range.low)} is below the expected ${range}: consistent with an added respiratory alkalosis`); named.add('respiratory-alkalosis'); }
   } else if (exp?.kind === 'metabolic-response' && cls.compensation !== 'appropriate' && cls.compensation !== 'not-applicable') {
     const added = cls.additional.find((d) => d === 'metabolic-acidosis' || d === 'metabolic-alkalosis');
     const o = exp.observed;
-    parts.push(`HCO3 ${formatAgainst(o, 1, exp.acute.low, exp.acute.high, exp.chronic.low, exp.chronic.high)} is outside the expected ${rangeAgainst(exp.acute.low, exp.acute.high, 0, o)} (acute) and ${rangeAgainst(exp.chronic.low, exp.chronic.high, 0, o)} (chronic) mmol/L: suspect an added ${added ? DISORDER_WORDS[added] : 'metabolic disorder'}`);
+    parts.push(`HCO3 ${formatAgainst(o, 1, exp.acute.low, exp.acute.high, exp.chronic.low, exp.chronic.high)} mmol/L is outside the expected ${rangeAgainst(exp.acute.low, exp.acute.high, 0, o)} mmol/L (acute) and ${rangeAgainst(exp.chronic.low, exp.chronic.high, 0, o)} mmol/L (chronic): consistent with an added ${added ? DISORDER_WORDS[added] : 'metabolic disorder'}`);
     if (added) named.add(added);
   }
   const extra = cls.additional.filter((d) => d !== cls.primary && !named.has(d));
-  if (extra.length > 0) parts.push(`suspected additional ${extra.map((d) => DISORDER_WORDS[d]).join(' and ')}`);
+  if (extra.length > 0) parts.push(`also consistent with an added ${extra.map((d) => DISORDER_WORDS[d]).join(' and ')}`);
   return `${parts.join('; ')}.`;
 }

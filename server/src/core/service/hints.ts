@@ -319,11 +319,11 @@ export function acidBaseLabel(text: string): string | null {
   } else if (/normal acid–base/i.test(first)) label = 'normal pH';
   if (label === null) return null;
   const extra: string[] = [];
-  const additional = /suspected additional ([^;.]+)/i.exec(text);
+  const additional = /also consistent with an added ([^;.]+)/i.exec(text);
   if (additional?.[1]) {
     for (const m of additional[1].matchAll(/(metabolic|respiratory) (acidosis|alkalosis)/gi)) extra.push(disorder(m[1]!, m[2]!));
   }
-  for (const m of text.matchAll(/suspect an added (respiratory|metabolic) (acidosis|alkalosis|disorder)/gi)) {
+  for (const m of text.matchAll(/: consistent with an added (respiratory|metabolic) (acidosis|alkalosis|disorder)/gi)) {
     const added = m[2]!.toLowerCase() === 'disorder' ? `${ABBREVIATION[m[1]!.toLowerCase()] ?? m[1]!} disorder?` : `${disorder(m[1]!, m[2]!)}?`;
     if (!extra.some((e) => added.startsWith(e))) extra.push(added);
   }
