@@ -129,7 +129,7 @@ describe('pneumark show', async () => {
     expect(text).toMatch(/ΔP 19 cmH2O/);
     expect(text).toMatch(/\* uses a value carried from an earlier timepoint/);
     expect(text).toMatch(/missing {2}add spo2 to get OSI/);
-    expect(text).toMatch(/reading {2}P\/F 93 with PEEP 8 cmH2O: consistent with the ≤ 100 oxygenation band/);
+    expect(text).toMatch(/reading {2}P\/F 93 mmHg with PEEP 8 cmH2O: consistent with the ≤ 100 mmHg oxygenation band/);
   });
 
   it('puts derived values with formula, inputs and sources in the JSON', async () => {

@@ -62,6 +62,14 @@ describe('inputs and where they came from', () => {
     expect(d.missing.find((m) => m.id === 'aa_gradient')?.needs).toEqual(['fio2 (or an oxygen line)']);
   });
 
+  it('names each key to add once, as a list a sentence writes, also through another derived value', () => {
+    // The delta ratio needs the anion gap (na, cl, hco3) and an hco3 of its own: hco3 once.
+    const labs = derivation('@ 08:00\nlabs na 140');
+    expect(labs.missing.find((m) => m.id === 'delta_ratio')).toMatchObject({ needs: ['cl', 'hco3'], message: 'add cl and hco3 to get Δ ratio' });
+    const gas = derivation('@ 08:00\nabg po2 71 mmhgg');
+    expect(gas.missing.find((m) => m.id === 'aa_gradient')?.message).toBe('add po2, fio2 (or an oxygen line) and pco2 to get A–a');
+  });
+
   it('labels a low-flow FiO2 as an estimate and never uses it for P/F', () => {
     const d = derivation('@ 08:00\noxygen cannula 3 L/min\nabg 7.40/40/95/24');
     const est = d.derived.find((x) => x.id === 'fio2_estimated');

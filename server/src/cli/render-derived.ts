@@ -2,6 +2,7 @@
 import type { Timepoint } from '../core/analysis/model';
 import type { TimepointDerivation } from '../core/derive/model';
 import { showsKpa } from '../core/present';
+import { wordList } from '../core/util/format';
 import { kpaText, numberText } from '../core/service/derived-hover';
 import type { Paint } from './colour';
 
@@ -33,7 +34,7 @@ export function renderDerived(tp: Timepoint, d: TimepointDerivation | undefined,
 export function groupMissing(d: TimepointDerivation): Map<string, string[]> {
   const groups = new Map<string, string[]>();
   for (const m of d.missing) {
-    const key = m.needs.join(' and ');
+    const key = wordList(m.needs);
     const list = groups.get(key) ?? [];
     list.push(m.message.slice(m.message.lastIndexOf(' to get ') + 8));
     groups.set(key, list);

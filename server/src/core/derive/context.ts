@@ -7,7 +7,7 @@ import type { InputValue, Timepoint, ValuesInForce } from '../analysis/model';
 import { fieldById } from '../fields/registry';
 import { displayUnit } from '../analysis/read-value';
 import type { Settings } from '../settings';
-import { formatNumber } from '../util/format';
+import { formatNumber, wordList } from '../util/format';
 import { describeOrigin } from '../present';
 import type { DerivedCategory, DerivedValue, InputOrigin, MissingValue, NotApplicable, Term } from './model';
 import { NONE } from '../util/lists';
@@ -216,16 +216,25 @@ export class DeriveContext {
   }
 
   /** What to add to get another derived value (its own missing inputs), for messages. */
-  lacking(id: string): string {
+  lacking(id: string): readonly string[] {
     const r = this.evaluate(id);
-    if (r && 'needs' in r) return r.needs.join(' and ');
+    if (r && 'needs' in r) return r.needs;
     const slot = this.table.slots.get(id);
-    return slot === undefined ? id : this.table.list[slot]!.short;
+    return [slot === undefined ? id : this.table.list[slot]!.short];
   }
 
-  /** Names what is missing: pairs of [term, key to add]. */
-  missing(...pairs: readonly (readonly [unknown, string])[]): Outcome {
-    return { kind: 'missing', needs: pairs.filter(([t]) => t === null || t === undefined).map(([, key]) => key) };
+  /**
+   * Names what is missing: pairs of [term, what to add] (a key, or the keys another derived value
+   * lacks). Each key is named once: the delta ratio lacks the anion gap's na, cl and hco3 and an
+   * hco3 of its own, and asks for hco3 once.
+   */
+  missing(...pairs: readonly (readonly [unknown, string | readonly string[]])[]): Outcome {
+    const needs: string[] = [];
+    for (const [term, what] of pairs) {
+      if (term !== null && term !== undefined) continue;
+      for (const key of typeof what === 'string' ? [what] : what) if (!needs.includes(key)) needs.push(key);
+    }
+    return { kind: 'missing', needs };
   }
 }
 
@@ -287,7 +296,7 @@ function evaluateDef(def: DerivedDefinition, c: DeriveContext): DerivedValue | M
   }
   if (outcome.kind === 'missing') {
     if (outcome.needs.length === 0) return null;
-    return { id: def.id, label: def.label, needs: outcome.needs, message: `add ${outcome.needs.join(' and ')} to get ${def.short}`, line };
+    return { id: def.id, label: def.label, needs: outcome.needs, message: `add ${wordList(outcome.needs)} to get ${def.short}`, line };
   }
   if (outcome.kind === 'na') return { id: def.id, label: def.label, reason: outcome.reason, line };
   return new ComputedValue(def, outcome, usesCarried(outcome.terms, c), line);

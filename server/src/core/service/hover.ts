@@ -16,7 +16,7 @@ import { sectionById, type SectionId } from '../fields/sections';
 import { describeInput, formatAlternative, formatStated, statedInKpa } from '../present';
 import type { SectionLine, TimepointLine } from '../syntax/tree';
 import type { Position } from '../types';
-import { formatNumber, formatShort } from '../util/format';
+import { formatNumber, formatShort, wordList } from '../util/format';
 import { derivedValueText } from './derived-hover';
 import { allStated, contentEnd, contentStart, isValidPosition, itemAt, lineAt, lineRange, showsKpaOnLine, spanContains, statedOf, timepointOfLine, type ItemHit } from './locate';
 import { cautionLine, code, escapeMarkdown, paragraphs } from './markdown';
@@ -221,7 +221,7 @@ function derivedLine(d: DerivedValue, tp: Timepoint): string {
 function missingGroups(d: TimepointDerivation): string[] {
   const groups = new Map<string, string[]>();
   for (const m of d.missing) {
-    const key = m.needs.join(' and ');
+    const key = wordList(m.needs);
     const what = derivedDef(m.id)?.short ?? m.label;
     const list = groups.get(key);
     if (list) list.push(what);
