@@ -86,7 +86,7 @@ describe('hover on a key, value or unit', () => {
 
   it('says whether a value carries forward', () => {
     expect(markdown('vent pe|ep 8')).toContain('Carries forward: yes');
-    expect(markdown('vent plat|eau 27')).toContain('a reading belongs to its timepoint');
+    expect(markdown('vent plat|eau 27')).toContain('Carries forward: no — a value measured on the device belongs to its timepoint; the settings on this line carry forward.');
     expect(markdown('place alti|tude 1650 m')).toContain('until a later `place` line replaces the place');
   });
 
@@ -100,6 +100,20 @@ describe('hover on a key, value or unit', () => {
   it('says when a value is kept out of calculations, or replaced by a later one', () => {
     expect(markdown('abg po2 9.|1')).toContain('Not used in calculations: implausible in mmHg, ordinary in kPa');
     expect(markdown(note('@ 08:00', 'abg po2 7|1', 'abg po2 64'))).toContain('A later value at this timepoint replaces it (line 3)');
+  });
+
+  it('says why a value is not used: a word it does not know, a unit of something else, a unit it does not know', () => {
+    const word = markdown('oxygen device can|ula');
+    expect(word).toContain('Not used in calculations: the word is not known.');
+    expect(word).not.toContain('unit');
+    const otherUnit = markdown('vitals temp 3|7 mmHg');
+    expect(otherUnit).toContain('Unit `mmHg` does not measure Temperature, which takes C or F.');
+    expect(otherUnit).toContain('Not used in calculations: the unit is not one Temperature takes.');
+    expect(markdown('abg po2 7|1 mmhgg')).toContain('Unit `mmhgg` is not a unit Pneumark knows; PaO2 takes mmHg or kPa.');
+  });
+
+  it('names the device once: it is written first on the oxygen line', () => {
+    expect(markdown('oxygen can|nula 2')).toContain('**Oxygen device** — the device, written first on this `oxygen` line');
   });
 
   it('explains a key that is not a key of its section', () => {
@@ -126,6 +140,7 @@ describe('hover on a timepoint line', () => {
     expect(h.range).toEqual({ start: { line: 5, character: 0 }, end: { line: 5, character: 20 } });
     const md = h.markdown;
     expect(md).toContain('Time: day 2, 02:00 (225 min after the previous timepoint; 1560 min after day 1 00:00)');
+    expect(markdown(note('@ day 0 0|9:00'))).toContain('Time: day 0, 09:00 (900 min before day 1 00:00).');
     expect(md).toContain('**Carried into this timepoint**');
     expect(md).toContain('Age 58 y (header, line 1)');
     expect(md).toContain('FiO2 0.80 (carried from admitted, line 3)');

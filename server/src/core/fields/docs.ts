@@ -65,7 +65,7 @@ export function renderFieldTable(): string {
       const units = f.kind === 'word' ? wordsText(f) : (f.units ?? []).map(displayUnit).join(', ') + (f.bare === 'gas' ? ' (bare: the note gas unit)' : f.bare === 'fraction-or-percent' ? ' (bare: ≤ 1 fraction, else %)' : '');
       const code = loincFor(f, s.id);
       const loinc = code ? `${code.code}${code.fromMemory ? ' (from memory)' : ''}` : '—';
-      out.push(`| ${f.aliases.map((a) => `\`${a}\``).join(', ')} | ${f.label}${f.reading ? ' (reading, does not carry)' : ''} | ${units} | ${bounds(f.hard)} | ${bounds(f.soft)} | ${loinc} |`);
+      out.push(`| ${f.aliases.map((a) => `\`${a}\``).join(', ')} | ${f.label}${f.reading ? ' (measured, does not carry)' : ''} | ${units} | ${bounds(f.hard)} | ${bounds(f.soft)} | ${loinc} |`);
     }
     out.push('');
   }

@@ -17,6 +17,7 @@ import { describeInput, formatAlternative, formatStated, statedInKpa } from '../
 import type { SectionLine, TimepointLine } from '../syntax/tree';
 import type { Position } from '../types';
 import { formatNumber, formatShort, wordList } from '../util/format';
+import { unitsForSpelling } from '../fields/units';
 import { derivedValueText } from './derived-hover';
 import { allStated, contentEnd, contentStart, isValidPosition, itemAt, lineAt, lineRange, showsKpaOnLine, spanContains, statedOf, timepointOfLine, type ItemHit } from './locate';
 import { cautionLine, code, escapeMarkdown, paragraphs } from './markdown';
@@ -79,13 +80,13 @@ function fieldMarkdown(result: NoteResult, node: SectionLine, hit: ItemHit): str
   const stated = statedOf(result, node.line, hit.item);
   const keyWords = hit.item.implied === 'shorthand'
     ? `the ${shorthandPosition(hit.item.keyName)} number of the shorthand gas`
-    : hit.item.implied === 'device' ? 'the device, first on the oxygen line'
+    : hit.item.implied === 'device' ? 'the device, written first'
       : hit.item.implied === 'device-flow' ? 'the number after the device'
         : `${code(hit.item.key?.text ?? field.aliases[0] ?? field.id)}`;
   const head = `**${escapeMarkdown(field.label)}** — ${keyWords} on this ${code(node.section)} line`;
   const parts: (string | null)[] = [head, escapeMarkdown(field.description)];
   if (stated) {
-    parts.push(valueText(stated, showsKpaOnLine(result, stated.line)), unitText(result, stated, field), originText(result, stated), usableText(stated), feedsText(result, stated));
+    parts.push(valueText(stated, showsKpaOnLine(result, stated.line)), unitText(result, stated, field), originText(result, stated), usableText(stated, field), feedsText(result, stated));
   } else if (hit.item.value) {
     parts.push(`${code(hit.item.value.text)} could not be read as ${escapeMarkdown(field.label)}.`);
   }
@@ -121,7 +122,14 @@ function valueText(s: StatedValue, kpaFirst: boolean): string {
 
 function unitText(result: NoteResult, s: StatedValue, field: FieldDef): string | null {
   if (s.word !== null || s.unit === 'ph') return null;
-  if (!s.readUnit) return s.item.unit ? `Unit ${code(s.item.unit.text)} could not be read for ${escapeMarkdown(field.label)}.` : null;
+  if (!s.readUnit) {
+    if (!s.item.unit) return null;
+    const allowed = escapeMarkdown(wordList((field.units ?? []).map(displayUnit), 'or'));
+    // A unit Pneumark knows that measures something else (`temp 37 mmHg`), or no unit at all (`mmhgg`).
+    return unitsForSpelling(s.item.unit.text).length > 0
+      ? `Unit ${code(s.item.unit.text)} does not measure ${escapeMarkdown(field.label)}, which takes ${allowed}.`
+      : `Unit ${code(s.item.unit.text)} is not a unit Pneumark knows; ${escapeMarkdown(field.label)} takes ${allowed}.`;
+  }
   const read = s.readUnit === 'fraction' ? 'a fraction' : displayUnit(s.readUnit);
   if (!s.unitImplied) return `Written in ${escapeMarkdown(read)}.`;
   let why = "the field's default unit";
@@ -154,12 +162,13 @@ function originText(result: NoteResult, s: StatedValue): string {
   return `Stated on line ${s.line + 1}, at timepoint ${timepointName(tp)}.${replaced}`;
 }
 
-function usableText(s: StatedValue): string | null {
+function usableText(s: StatedValue, field: FieldDef): string | null {
   if (s.usable) return null;
   if (s.unitDoubt) return `Not used in calculations: implausible in ${escapeMarkdown(displayUnit(s.readUnit ?? ''))}, ordinary in ${escapeMarkdown(displayUnit(s.unitDoubt))} — write the unit.`;
-  if (!s.readUnit && s.word === null) return 'Not used in calculations: the unit could not be read.';
-  if (s.word === null) return 'Not used in calculations: the value is outside what is possible.';
-  return 'Not used in calculations: the word is not known.';
+  // A word field keeps no word it does not know (`device canula`): its value is null, like a number without a unit.
+  if (field.kind === 'word') return 'Not used in calculations: the word is not known.';
+  if (!s.readUnit) return `Not used in calculations: the unit is not one ${escapeMarkdown(field.label)} takes.`;
+  return 'Not used in calculations: the value is outside what is possible.';
 }
 
 function derivationOf(result: NoteResult, tp: Timepoint): TimepointDerivation | null {
@@ -184,7 +193,9 @@ function carryText(field: FieldDef, section: SectionId): string {
       ? 'Carries forward: yes, until the next `oxygen` line (which replaces it) or a `vent` line.'
       : 'Carries forward: yes, until restated (a new `mode` keeps only PEEP and FiO2), or until an `oxygen` line.';
   }
-  return field.reading ? 'Carries forward: no — a reading belongs to its timepoint.' : 'Carries forward: no — a measurement belongs to its timepoint.';
+  // "Reading" names Pneumark's interpretations elsewhere: a value measured on a device is a measurement.
+  if (kind === 'setting') return 'Carries forward: no — a value measured on the device belongs to its timepoint; the settings on this line carry forward.';
+  return 'Carries forward: no — a measurement belongs to its timepoint.';
 }
 
 // ── timepoints ──────────────────────────────────────────────────────────
@@ -207,7 +218,7 @@ function timeParagraph(node: TimepointLine, tp: Timepoint | null): string {
   }
   if (node.time.kind === 'day' && t.day !== null) return `Time: day ${t.day}, no time of day.`;
   if (t.minutes === null) return `Time: day ${t.day ?? '?'}.`;
-  const since = `${formatNumber(t.minutes, 0)} min after day 1 00:00`;
+  const since = t.minutes < 0 ? `${formatNumber(-t.minutes, 0)} min before day 1 00:00` : `${formatNumber(t.minutes, 0)} min after day 1 00:00`;
   const offset = node.time.kind === 'offset' && node.time.minutes !== null ? `${formatNumber(node.time.minutes, 0)} min after the previous timepoint; ` : '';
   return `Time: ${clockText(t.minutes)} (${offset}${since}).`;
 }
