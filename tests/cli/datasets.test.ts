@@ -87,6 +87,23 @@ describe('limits and levels', () => {
       expect(out.out()).toMatch(new RegExp(`^Usage: pneumark ${command}`));
     }
   });
+
+  it('lays out every command\'s options alike: an Options heading, descriptions in one column', async () => {
+    for (const command of ['check', 'export', 'fmt', 'docs']) {
+      const out = io(process.cwd());
+      await run([command, '--help'], out);
+      const text = out.out();
+      expect(text, command).toContain('\nOptions:\n');
+      for (const line of text.split('\n').filter((l) => /^ {2}--/.test(l))) expect(line.slice(0, 29), `${command}: ${line}`).toMatch(/^ {2}--\S.* {2,}$/);
+    }
+  });
+
+  it('names every cause of exit code 2 in the main help, inputs that hold no note among them', async () => {
+    const out = io(process.cwd());
+    await run(['--help'], out);
+    const text = out.out().replace(/\s+/g, ' ');
+    expect(text).toContain('2 a usage error, inputs that hold no note (an empty folder, a pattern that matches nothing), a note that could not be read or that fmt --write would not rewrite');
+  });
 });
 
 describe('fmt', () => {

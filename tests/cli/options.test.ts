@@ -62,13 +62,13 @@ describe('option problems', () => {
   it('name the option as typed, in plain words on one line', async () => {
     expect(await usageError(['check', '--max-warnings', '-1', NOTE])).toBe('pneumark check: --max-warnings: expected a whole number, 0 or more (got "-1")');
     expect(await usageError(['check', '--exclude', '', NOTE])).toBe('pneumark check: --exclude: must not be empty (got "")');
-    expect(await usageError(['check', '--format', 'xml', NOTE])).toBe('pneumark check: --format: must be one of text, json, sarif (got "xml")');
+    expect(await usageError(['check', '--format', 'xml', NOTE])).toBe('pneumark check: --format: must be one of text, json or sarif (got "xml")');
     expect(await usageError(['check', '--colour', NOTE])).toBe('pneumark check: unknown option --colour (see --help)');
     expect(await usageError(['check', NOTE, '--format'])).toBe('pneumark check: --format needs a value');
     expect(await usageError(['check', '--quiet=yes', NOTE])).toBe('pneumark check: --quiet takes no value');
     expect(await usageError(['check', '--format', '-x', NOTE])).toBe('pneumark check: --format needs a value (write --format=VALUE for a value that starts with -)');
-    expect(await usageError(['export', NOTE])).toBe('pneumark export: --format: is needed: csv, jsonl or fhir');
-    expect(await usageError(['export', '--format', 'xml', NOTE])).toBe('pneumark export: --format: choose csv, jsonl or fhir (got "xml")');
+    expect(await usageError(['export', NOTE])).toBe('pneumark export: --format: is required: csv, jsonl or fhir');
+    expect(await usageError(['export', '--format', 'xml', NOTE])).toBe('pneumark export: --format: must be one of csv, jsonl or fhir (got "xml")');
   });
 
   it('never show the schema key or the validator\'s wording', async () => {

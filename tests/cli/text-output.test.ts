@@ -154,7 +154,7 @@ describe('bidirectional controls', () => {
       [['fmt', TRICK_NAME], `pneumark: ${escapedName}: is not UTF-8 text`],
       [['check', `missing${RLO}.pneu`], 'pneumark: missing\\u{202E}.pneu: no such file or folder'],
       [['fmt', '--check', `missing${RLO}.pneu`], 'pneumark: missing\\u{202E}.pneu: no such file or folder'],
-      [['check', '--format', `te${RLO}xt`, '-'], 'pneumark check: --format: must be one of text, json, sarif (got "te\\u{202E}xt")'],
+      [['check', '--format', `te${RLO}xt`, '-'], 'pneumark check: --format: must be one of text, json or sarif (got "te\\u{202E}xt")'],
       [[`ch${RLO}eck`], 'pneumark: unknown command `ch\\u{202E}eck`'],
     ];
     for (const [args, expected] of cases) {

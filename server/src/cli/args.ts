@@ -4,6 +4,7 @@
  */
 import { parseArgs } from 'node:util';
 import { z } from 'zod';
+import { wordList } from '../core/util/format';
 
 export interface Io {
   readonly cwd: string;
@@ -35,9 +36,10 @@ as a .gitignore does: the working folder's, and those in the folders on the way 
 Run \`pneumark COMMAND --help\` for a command's options.
 
 Exit codes: 0 clean; 1 findings at error level, more warnings than --max-warnings, or notes that
-fmt --check would change; 2 a usage error, a note that could not be read, an invalid
-pneumark.config.json (one line per problem on standard error; the run goes on with the defaults
-for that file), or standard output closed early (e.g. by head).
+fmt --check would change; 2 a usage error, inputs that hold no note (an empty folder, a pattern
+that matches nothing), a note that could not be read or that fmt --write would not rewrite, an
+invalid pneumark.config.json (one line per problem on standard error; the run goes on with the
+defaults for that file), or standard output closed early (e.g. by head).
 
 ${CAUTION}`,
   show: `Usage: pneumark show FILE
@@ -64,24 +66,30 @@ Options:
   --shift-days N             add N days to every day number and time offset (de-identification);
                              N a whole number from -100000 to 100000, e.g. --shift-days -3
   --anchor DATETIME          FHIR only: the ISO date-time of day 1 00:00, to give observations a time
-  --exclude PATTERN          leave out paths matching PATTERN (repeatable)
+  --exclude PATTERN          leave out paths matching PATTERN (gitignore syntax; repeatable)
   --jobs N                   worker threads (0 or 1: none); default one per core, up to 4, from 200 notes
   --no-progress              no progress bar, even on a terminal
 Columns are listed in README.md ("Export columns").`,
   fmt: `Usage: pneumark fmt PATH... [--check | --write] [--force]
 
 Without --check or --write, prints the formatted note (one file only).
-  --check      list notes whose layout would change; exit 1 if any
-  --write      rewrite notes in place, atomically; a note with syntax errors is left alone unless
-               --force, and a note changed on disk while being formatted is never overwritten
-  --force      also rewrite notes that have syntax errors (their broken lines are kept as they are)
-  --exclude PATTERN   leave out paths matching PATTERN (repeatable)`,
+
+Options:
+  --check                    list notes whose layout would change; exit 1 if any
+  --write                    rewrite notes in place, atomically; a note with syntax errors is left
+                             alone unless --force, and a note changed on disk while being formatted
+                             is never overwritten
+  --force                    also rewrite notes that have syntax errors (their broken lines are kept
+                             as they are)
+  --exclude PATTERN          leave out paths matching PATTERN (gitignore syntax; repeatable)`,
   docs: `Usage: pneumark docs [--write FILE] [--grammar FILE] [--readme FILE]
 
 Prints (or writes) the documentation of every check, generated from the check registry.
-  --write FILE     write it to FILE instead of standard output
-  --grammar FILE   regenerate the generated tables in FILE (grammar/README.md)
-  --readme FILE    regenerate the export columns in FILE (README.md)`,
+
+Options:
+  --write FILE               write it to FILE instead of standard output
+  --grammar FILE             regenerate the generated tables in FILE (grammar/README.md)
+  --readme FILE              regenerate the export columns in FILE (README.md)`,
 };
 
 export class UsageError extends Error {}
@@ -163,7 +171,7 @@ function plainProblem(issue: z.core.$ZodRawIssue): string {
     case 'too_big':
       return issue.origin === 'string' ? `is too long (at most ${String(issue.maximum)} characters)` : issue.origin === 'array' ? `can be given at most ${String(issue.maximum)} times` : `must be at most ${String(issue.maximum)}`;
     case 'invalid_value':
-      return `must be one of ${issue.values.map(String).join(', ')}`;
+      return `must be one of ${wordList(issue.values.map(String), 'or')}`;
     case 'invalid_type':
       return issue.expected === 'string' || issue.expected === 'number' ? 'needs a value' : 'is not valid here';
     default:

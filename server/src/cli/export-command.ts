@@ -18,7 +18,7 @@ import { gather } from './pool';
 import { NoteWorker, written, type ExportRenderer, type FileReport } from './work';
 
 const exportOptions = z.object({
-  format: z.enum(['csv', 'jsonl', 'fhir'], { error: (issue) => issue.input === undefined ? 'is needed: csv, jsonl or fhir' : 'choose csv, jsonl or fhir' }),
+  format: z.enum(['csv', 'jsonl', 'fhir'], { error: (issue) => issue.input === undefined ? 'is required: csv, jsonl or fhir' : 'must be one of csv, jsonl or fhir' }),
   redact: z.boolean().default(false),
   shiftDays: wholeNumberOption(-100000, 100000, 'expected a whole number of days from -100000 to 100000', true).optional(),
   anchor: z.string().max(64, { message: 'is too long for a date-time' }).nullable().default(null).refine((a) => a === null || anchorProblem(a) === null, { message: 'not an ISO 8601 date-time with a zone, e.g. 2026-01-05T00:00:00Z' }),
