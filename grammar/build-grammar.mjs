@@ -63,6 +63,17 @@ const START = '(?<![^\\s,])(?!(?<=[0-9],)[0-9])';
  * digits, which the lexer keeps inside the chunk (a decimal comma).
  */
 const END = '(?![^\\s,#]|(?<=[0-9]),[0-9])';
+/**
+ * Where a full stop ends the items of a line: before blanks and a comment, or the line end. The
+ * parser cuts it from the word it ends (`hr 80.`, `temp 38.4 C.`, `mode VC.`) and reports it.
+ */
+const FULL_STOP = '\\.(?=\\s*(?:#|$))';
+const FULL_STOP_AHEAD = `(?=${FULL_STOP})`;
+/**
+ * Where a chunk read as a key, a value or a unit ends: as END, but never just after a full stop
+ * that ends the line, and also just before one (the parser reads `80.` there as `80`).
+ */
+const VALUE_END = `(?:${END}(?!(?<=\\.)\\s*(?:#|$))|${FULL_STOP_AHEAD})`;
 /** The rest of a chunk, decimal commas included. */
 const CHUNK_REST = '(?:[^\\s,#]|(?<=[0-9]),(?=[0-9]))*';
 /** A number as the lexer reads it: sign, digits, a decimal point or comma between digits, or `.5`. */
@@ -107,8 +118,7 @@ function keysOf(FIELDS, sectionId) {
 
 /**
  * Unit spellings a note can write. Spellings with a blank (`mm hg`, `cm h2o`) are left out unless
- * `twoWords`: the parser reads them as one unit only after blanks (`80 mm Hg`), never glued to a
- * number (`80mm Hg` is the unknown unit `mm`, then the word `Hg`).
+ * `twoWords`; the parser reads them after blanks (`80 mm Hg`) and glued to a number (`80mm Hg`).
  */
 export function unitSpellings(UNITS, twoWords = false) {
   const out = [];
@@ -162,19 +172,19 @@ function spacedUnit(units, keys) {
   return [
     '\\s+(?:',
     // A unit spelling that is also a key of the section, with a number after it, is that key (`pco2 40 ph 7.4`).
-    `(?!${keys}${END}\\s+${NUM_START})`, cap('keyword.other.unit', units.spaced), END,
-    `|(?!${keys}${END})(?=[A-Za-z%°])`, cap('keyword.other.unit.unknown', '[^\\s,#]{1,12}'), END, `(?!\\s+${NUM_START})`,
+    `(?!${keys}${END}\\s+${NUM_START})`, cap('keyword.other.unit', units.spaced), VALUE_END,
+    `|(?!${keys}${VALUE_END})(?=[A-Za-z%°])`, cap('keyword.other.unit.unknown', '[^\\s,#]{1,12}'), VALUE_END, `(?!\\s+${NUM_START})`,
     ')',
   ];
 }
 
-/** A number with its unit: glued (`89%`, `38.4C`) or after blanks (`89 %`). */
+/** A number with its unit: glued (`89%`, `38.4C`, `80mm Hg`) or after blanks (`89 %`). */
 function numberWithUnit(units, keys) {
   return [
     cap(numeric, NUM),
     '(?:',
-    cap('keyword.other.unit', units.glued), END,
-    '|', cap('keyword.other.unit.unknown', `[^\\s,#]${CHUNK_REST}`),
+    cap('keyword.other.unit', units.glued), VALUE_END,
+    '|', cap('keyword.other.unit.unknown', `[^\\s,#]${CHUNK_REST}`), VALUE_END,
     '|', spacedUnit(units, keys),
     ')?',
   ];
@@ -212,9 +222,9 @@ const LONG_PAIR_SPACED = slashGroup(3, 12, SPACED);
  */
 function groupTail(units, keys) {
   return [
-    '(?:', cap('keyword.other.unit', units.glued), END,
-    '|', cap('keyword.other.unit.unknown', '[A-Za-z%°][^\\s,#/]*'), END,
-    '|', END, '(?:', spacedUnit(units, keys), ')?',
+    '(?:', cap('keyword.other.unit', units.glued), VALUE_END,
+    '|', cap('keyword.other.unit.unknown', '[A-Za-z%°][^\\s,#/]*'), VALUE_END,
+    '|', VALUE_END, '(?:', spacedUnit(units, keys), ')?',
     ')',
   ];
 }
@@ -247,7 +257,7 @@ function strayRules(gas, units) {
 function keyValueRule(units, keys) {
   const rule = assemble(
     START,
-    '(?:', cap('variable.other.key', keys), END, '|', `(?!${NUM_START})`, cap('variable.other.key.unknown', `[^\\s,#]${CHUNK_REST}`), ')',
+    '(?:', cap('variable.other.key', keys), VALUE_END, '|', `(?!${NUM_START})`, cap('variable.other.key.unknown', `[^\\s,#]${CHUNK_REST}`), VALUE_END, ')',
     '(?:\\s+(?:',
     cap(pair('meta.pair'), PAIR), groupTail(units, keys),
     '|', cap('invalid.illegal.pair', LONG_PAIR), groupTail(units, keys),
@@ -274,10 +284,10 @@ function spacedPairRule(pairKeys, units, keys) {
 function wordItemRule(field, sectionKeys) {
   const known = Object.keys(field.words ?? {});
   const rule = assemble(
-    START, cap('variable.other.key', alt(field.aliases)), END,
+    START, cap('variable.other.key', alt(field.aliases)), VALUE_END,
     '(?:\\s+(?:',
-    cap('constant.language', alt(known)), END,
-    `|(?!${sectionKeys}${END})`, cap(field.openWords ? 'constant.other.word' : 'constant.other.word.unknown', `[^\\s,#]${CHUNK_REST}`),
+    cap('constant.language', alt(known)), VALUE_END,
+    `|(?!${sectionKeys}${VALUE_END})`, cap(field.openWords ? 'constant.other.word' : 'constant.other.word.unknown', `[^\\s,#]${CHUNK_REST}`), VALUE_END,
     '))?',
   );
   return {
@@ -295,6 +305,7 @@ function itemPatterns({ FIELDS }, sectionId, units) {
   return [
     { include: '#comment' },
     { include: '#item-separator' },
+    { include: '#full-stop' },
     ...strayRules(gas, units),
     ...wordFields.map((f) => wordItemRule(f, keys)),
     ...(pairKeys.length > 0 ? [spacedPairRule(alt(pairKeys), units, keys)] : []),
@@ -340,8 +351,9 @@ function unknownBegin() {
  * the core). Pure: the same registries give the same object.
  */
 export function buildGrammar({ SECTIONS, FIELDS, UNITS }) {
-  // Units glued to a number are one word; after blanks, a unit may be two (`mm Hg`).
-  const units = { glued: alt(unitSpellings(UNITS)), spaced: alt(unitSpellings(UNITS, true)) };
+  // A unit may be of two words (`mm Hg`), glued to its number or after blanks, as the parser reads it.
+  const spellings = alt(unitSpellings(UNITS, true));
+  const units = { glued: spellings, spaced: spellings };
   const repository = {
     comment: {
       comment: '`#` starts a comment that runs to the end of the line, anywhere on the line.',
@@ -355,6 +367,11 @@ export function buildGrammar({ SECTIONS, FIELDS, UNITS }) {
       name: sc('invalid.deprecated.decimal-comma'),
     },
     'item-separator': { match: ',', name: sc('punctuation.separator.item') },
+    'full-stop': {
+      comment: 'A full stop that ends the items of a line: read without it, and reported lightly (PN105).',
+      match: FULL_STOP,
+      name: sc('punctuation.terminator.full-stop'),
+    },
     'shorthand-parts': {
       patterns: [
         { match: NUM, captures: { 0: numeric } },
@@ -391,7 +408,7 @@ export function buildGrammar({ SECTIONS, FIELDS, UNITS }) {
     const keys = alt(keysOf(FIELDS, section.id));
     const lead = {
       // An oxygen line starts with the device; a number right after it is its flow (or CPAP level).
-      oxygen: ['(?:', leadGap, cap('constant.language', alt(deviceWords(FIELDS))), END, '(?:\\s+', numberWithUnit(units, keys), ')?)?'],
+      oxygen: ['(?:', leadGap, cap('constant.language', alt(deviceWords(FIELDS))), VALUE_END, '(?:\\s+', numberWithUnit(units, keys), ')?)?'],
       abg: shorthandLead(units, keys),
       vbg: shorthandLead(units, keys),
     }[section.id];

@@ -222,17 +222,36 @@ describe('section lines', () => {
     expect(at(text, section(text).prose?.span)).toBe('a, b,');
   });
 
-  it('reads a unit of two words after a number (`mm Hg`, `cm H2O`), but not one glued to it', () => {
+  it('reads a unit of two words after a number (`mm Hg`, `cm H2O`)', () => {
     const text = 'abg po2 80 mm Hg, pco2 40 MM  hg be -2';
     expect(section(text).items.map((i) => summary(text, i))).toEqual(['po2 | 80 | mm Hg', 'pco2 | 40 | MM  hg', 'be | -2 | <none>']);
     const vent = 'vent peep 5 cm H2O rate 20';
     expect(section(vent).items.map((i) => summary(vent, i))).toEqual(['peep | 5 | cm H2O', 'rate | 20 | <none>']);
     const gas = 'abg 7.31/41/80/24 mm Hg';
     expect(section(gas).items.map((i) => summary(gas, i))).toEqual(['ph | 7.31 | <none>', 'pco2 | 41 | mm Hg', 'po2 | 80 | mm Hg', 'hco3 | 24 | <none>']);
-    const glued = 'abg po2 80mm Hg';
-    expect(section(glued).items.map((i) => summary(glued, i))).toEqual(['po2 | 80 | mm', 'hg | <none> | <none>']);
     const height = 'patient height 170 cm, weight 70';
     expect(section(height).items.map((i) => summary(height, i))).toEqual(['height | 170 | cm', 'weight | 70 | <none>']);
+  });
+
+  it('reads a unit of two words glued to its number (`80mm Hg`, `5cm H2O`) as it reads it after a blank', () => {
+    const cases: [string, string[]][] = [
+      ['abg po2 80mm Hg, pco2 40', ['po2 | 80 | mm Hg', 'pco2 | 40 | <none>']],
+      ['vent peep 5cm H2O rate 20', ['peep | 5 | cm H2O', 'rate | 20 | <none>']],
+      ['vent peep 5CM h2o', ['peep | 5 | CM h2o']],
+      ['vitals bp 120/80mm Hg', ['bp | 120/80 | mm Hg']],
+      ['vitals bp 120 / 80mm Hg', ['bp | 120 / 80 | mm Hg']],
+      ['abg 7.31/41/80/24mm Hg', ['ph | 7.31 | <none>', 'pco2 | 41 | mm Hg', 'po2 | 80 | mm Hg', 'hco3 | 24 | <none>']],
+      ['oxygen cpap 8cm H2O', ['device | cpap | <none>', 'level | 8 | cm H2O']],
+    ];
+    for (const [text, expected] of cases) {
+      expect(section(text).items.map((i) => summary(text, i)), text).toEqual(expected);
+      expect(section(text).issues, text).toEqual([]);
+    }
+    // Only words that make a unit together: `5cm` then a key stays the unit `cm` and the key.
+    const height = 'patient height 170cm hr';
+    expect(section(height).items.map((i) => summary(height, i))).toEqual(['height | 170 | cm', 'hr | <none> | <none>']);
+    const comma = 'abg po2 80mm, Hg';
+    expect(section(comma).items.map((i) => summary(comma, i))[0]).toBe('po2 | 80 | mm');
   });
 
   it('keeps an unknown unit as the unit, for the unit check to name', () => {
@@ -293,6 +312,97 @@ describe('section lines', () => {
     expect(node.issues[0]?.fixes.map((f) => f.title)).toContain('Change to `vitals`');
     const bare = line('hr 118');
     expect(bare.issues[0]?.fixes.map((f) => f.title)).toContain('Start the line with `vitals`');
+  });
+});
+
+describe('a full stop at the end of the items', () => {
+  it('reads the value before it, and reports the full stop lightly with a fix that removes it', () => {
+    const text = 'vitals hr 80.';
+    const node = section(text);
+    expect(node.items.map((i) => summary(text, i))).toEqual(['hr | 80 | <none>']);
+    expect(node.items[0]?.number).toBe(80);
+    expect(node.issues.map((i) => [i.check, i.severity, at(text, i.span), i.message])).toEqual([
+      ['stray-text', 'information', '.', '`80.` is read as `80`: a full stop at the end of the line is left out.'],
+    ]);
+    expect(node.issues[0]?.fixes).toEqual([{ title: 'Remove the full stop', edits: [{ span: { start: 12, end: 13 }, newText: '' }], preferred: true }]);
+  });
+
+  it('reads the last item of a list, a unit, a pair, a word, a device or a shorthand gas before it', () => {
+    const cases: [string, string[]][] = [
+      ['vitals hr 80, rr 18.', ['hr | 80 | <none>', 'rr | 18 | <none>']],
+      ['vitals spo2 94%.', ['spo2 | 94 | %']],
+      ['vitals temp 38.4 C.', ['temp | 38.4 | C']],
+      ['abg po2 80 mm Hg.', ['po2 | 80 | mm Hg']],
+      ['vitals bp 120/80.', ['bp | 120/80 | <none>']],
+      ['vent mode VC.', ['mode | VC | <none>']],
+      ['patient sex female.', ['sex | female | <none>']],
+      ['oxygen room air.', ['device | room air | <none>']],
+      ['oxygen cannula 2.', ['device | cannula | <none>', 'flow | 2 | <none>']],
+      ['abg 7.28/56/71/26.', ['ph | 7.28 | <none>', 'pco2 | 56 | <none>', 'po2 | 71 | <none>', 'hco3 | 26 | <none>']],
+      ['vitals hr 80.  # settled', ['hr | 80 | <none>']],
+      ['vitals hr 80 .', ['hr | 80 | <none>']],
+    ];
+    for (const [text, expected] of cases) {
+      const node = section(text);
+      expect(node.items.map((i) => summary(text, i)), text).toEqual(expected);
+      expect(node.issues.map((i) => [i.check, i.severity, at(text, i.span)]), text).toEqual([['stray-text', 'information', '.']]);
+    }
+    expect(section('vitals hr 80 .').issues[0]?.message).toBe('A full stop at the end of the line is not part of any item; the line is read without it.');
+  });
+
+  it('never changes a number: a decimal point followed by digits is part of it', () => {
+    expect(section('vitals temp 37.5').items[0]?.number).toBe(37.5);
+    expect(section('vitals temp 37.5').issues).toEqual([]);
+    expect(section('abg be .5').items[0]?.number).toBe(0.5);
+    expect(section('abg be .5.').items[0]?.number).toBe(0.5);
+    expect(section('vitals temp 37.5.').items[0]?.number).toBe(37.5);
+    expect(section('abg ph 7.').items[0]?.number).toBe(7);
+  });
+
+  it('is read only at the end of the line: in the middle it is still an unknown unit, and prose keeps its own', () => {
+    const text = 'vitals hr 80. rr 18';
+    expect(section(text).items.map((i) => summary(text, i))).toEqual(['hr | 80 | .', 'rr | 18 | <none>']);
+    expect(section(text).issues).toEqual([]);
+    expect(section('note settled overnight.').prose?.text).toBe('settled overnight.');
+    expect(section('note settled overnight.').issues).toEqual([]);
+    expect(timepoint('@ 08:00 arrival.').label?.text).toBe('arrival.');
+    expect(line('vitals.').kind).toBe('unknown');
+  });
+});
+
+describe('commas that separate nothing', () => {
+  const reported = (text: string) => line(text).issues.filter((i) => i.check === 'stray-text').map((i) => [i.severity, at(text, i.span), i.fixes.map((f) => f.title)]);
+
+  it('reports a comma at the start of a line or right after its first word, and reads the line without it', () => {
+    expect(reported(', vitals hr 80')).toEqual([['information', ',', ['Remove the comma']]]);
+    expect(reported('vitals , hr 80')).toEqual([['information', ',', ['Remove the comma']]]);
+    expect(reported('vitals,hr 80')).toEqual([['information', ',', ['Remove the comma']]]);
+    expect(reported('oxygen, cannula 2')).toEqual([['information', ',', ['Remove the comma']]]);
+    expect(reported('note, settled')).toEqual([['information', ',', ['Remove the comma']]]);
+    expect(reported(',, @ 08:00 ward')).toEqual([['information', ',,', ['Remove the commas']]]);
+    expect(reported('@, 08:00 ward')).toEqual([['information', ',', ['Remove the comma']]]);
+    expect(reported(' , ')).toEqual([['information', ',', ['Remove the comma']]]);
+    const text = ', vitals hr 80';
+    expect(section(text).items.map((i) => summary(text, i))).toEqual(['hr | 80 | <none>']);
+    expect(line(text).issues[0]?.message).toBe('A comma at the start of the line separates nothing; the line is read without it.');
+    expect(line('vitals , hr 80').issues[0]?.message).toBe('A comma right after `vitals` separates nothing; the line is read without it.');
+    expect(line(text).issues[0]?.fixes[0]?.edits).toEqual([{ span: { start: 0, end: 1 }, newText: '' }]);
+  });
+
+  it('reports a second comma between two items (is a value missing?), and removes only the extra one', () => {
+    const text = 'vitals hr 80, , rr 18';
+    expect(section(text).items.map((i) => summary(text, i))).toEqual(['hr | 80 | <none>', 'rr | 18 | <none>']);
+    expect(reported(text)).toEqual([['information', ',', ['Remove the extra comma']]]);
+    expect(line(text).issues[0]?.fixes[0]?.edits).toEqual([{ span: { start: 14, end: 15 }, newText: '' }]);
+    expect(reported('vitals hr 80,,, rr 18')).toEqual([['information', ',,', ['Remove the extra commas']]]);
+    expect(reported('vitals hr 80,,')).toEqual([['information', ',', ['Remove the extra comma']]]);
+    expect(reported('oxygen venturi,, fio2 28 %')).toEqual([['information', ',', ['Remove the extra comma']]]);
+  });
+
+  it('accepts one comma between items, after a lead, after the last item, and between a time and its label', () => {
+    for (const text of ['vitals hr 80, rr 18', 'vitals hr 80, rr 18,', 'oxygen venturi, fio2 28 %', 'abg 7.28/56/71/26, be -2', '@ 08:00, ward', '@ day 2, 08:00', 'vitals hr 7,5']) {
+      expect(reported(text), text).toEqual([]);
+    }
   });
 });
 

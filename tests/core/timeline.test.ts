@@ -44,6 +44,23 @@ describe('timepoints and time', () => {
     expect(codes(text)).toEqual([]);
   });
 
+  it('reads a unit of two words glued to its number (`80mm Hg`, `5cm H2O`) as it reads one after a blank', () => {
+    const text = '@ day 1 08:00\nabg po2 80mm Hg, pco2 5.3 kPa\nvent peep 5cm H2O, ps 10CM  h2o';
+    const tp = timeline(text).timepoints[0];
+    expect([value(tp, 'pao2'), value(tp, 'peep'), value(tp, 'pressure_support')]).toEqual([80, 5, 10]);
+    expect(codes(text)).toEqual([]);
+  });
+
+  it('uses a value that a full stop ends its line after, and reports the full stop only as information', () => {
+    const text = '@ day 1 08:00\nvitals hr 80, rr 18.\nabg po2 71 mmHg.\nvent mode VC, vt 430 mL, peep 5\n@ day 1 09:00\nvent mode VC.';
+    const [first, second] = timeline(text).timepoints;
+    expect([value(first, 'hr'), value(first, 'rr'), value(first, 'pao2')]).toEqual([80, 18, 71]);
+    // `VC.` is the mode VC: the settings carry on as after a restated mode, not as after a change.
+    expect([value(second, 'mode'), value(second, 'vt'), second?.values.get('vt')?.origin.kind]).toEqual(['VC', 430, 'carried']);
+    expect(codes(text)).toEqual([]);
+    expect(checkNote(text).findings.filter((f) => f.code === 'PN105').map((f) => [f.severity, f.range.start.line])).toEqual([['information', 1], ['information', 2], ['information', 5]]);
+  });
+
   it('makes an implicit first timepoint for values before any `@`', () => {
     const t = timeline('patient age 60 y\nvitals hr 80\n@ 08:00\nvitals hr 90');
     expect(t.timepoints.map((tp) => tp.label)).toEqual(['start', '08:00']);

@@ -48,12 +48,14 @@ describe('the grammar knows the registries', () => {
     expect(await misses(cases)).toEqual([]);
   });
 
-  it('every unit spelling of two words after a blank (`mm Hg`), as the parser reads it', async () => {
+  it('every unit spelling of two words, after a blank (`mm Hg`) or glued to the number (`1mm Hg`), as the parser reads it', async () => {
     const twoWords = unitSpellings(UNITS, true).filter((u) => /\s/.test(u));
     expect(twoWords.length).toBeGreaterThan(0);
     const cases = twoWords.flatMap((u) => variants(u).flatMap((w) => [
       { line: `abg po2 1 ${w}, pco2 2`, word: w.split(' ')[1]!, from: 10, scope: S('keyword.other.unit') },
       { line: `vent peep 1 ${w}`, word: w.split(' ')[1]!, from: 11, scope: S('keyword.other.unit') },
+      { line: `abg po2 1${w}, pco2 2`, word: w.split(' ')[1]!, from: 9, scope: S('keyword.other.unit') },
+      { line: `vent peep 1${w}`, word: w.split(' ')[1]!, from: 10, scope: S('keyword.other.unit') },
     ]));
     expect(await misses(cases)).toEqual([]);
   });

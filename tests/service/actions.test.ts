@@ -48,6 +48,13 @@ describe('fixes of findings', () => {
     for (const a of doubt) expect(checkNote(applyEdits(text, a.edits)).analysis.tree.lines[0]?.issues).toEqual([]);
   });
 
+  it('removes the full stops that end lines of items, one or all at once, keeping every value', () => {
+    expect(after('vitals hr 80, rr 18|.', 'Remove the full stop')).toBe('vitals hr 80, rr 18');
+    const all = after(note('vitals hr 80|.', 'abg po2 71 mmHg.', 'vent mode VC.'), 'Fix all in the note: Stray text (PN105, 3 places)');
+    expect(all).toBe(note('vitals hr 80', 'abg po2 71 mmHg', 'vent mode VC'));
+    expect(after(note('vitals hr 80,|, rr 18'), 'Remove the extra comma')).toBe('vitals hr 80, rr 18');
+  });
+
   it('offers nothing from findings the range does not touch', () => {
     const { list } = actions(note('abg ph 7,35', 'vitals h|r 80'));
     expect(list.filter((a) => a.kind === 'quickfix' && a.findingCodes?.includes('PN103'))).toEqual([]);

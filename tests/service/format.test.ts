@@ -24,6 +24,8 @@ describe('canonical layout', () => {
 
   it('writes a known glued unit apart, and keeps an unknown one glued', () => {
     expect(formatNote('vitals spo2 89%, temp 38.4C')).toBe('vitals    spo2 89 %, temp 38.4 C');
+    expect(formatNote('abg po2 80mm Hg, pco2 40')).toBe('abg       po2 80 mm Hg, pco2 40');
+    expect(formatNote('vent peep 5cm H2O')).toBe('vent      peep 5 cm H2O');
     expect(formatNote('abg po2 71mmhgg')).toBe('abg       po2 71mmhgg');
   });
 
@@ -53,6 +55,20 @@ describe('canonical layout', () => {
     expect(formatNote('note awaiting review, then,')).toBe('note      awaiting review, then,');
     expect(formatNote('@ day 1 08:00 arrival, then ward,')).toBe('@ day 1 08:00  arrival, then ward,');
     expect(formatNote('@ 09:00 bed 4,  # side room')).toBe('@ 09:00  bed 4,  # side room');
+  });
+
+  it('keeps a comma after the last item, and one after a time, glued to what it follows', () => {
+    expect(formatNote('vitals hr 80 ,rr 18 ,')).toBe('vitals    hr 80, rr 18,');
+    expect(formatNote('abg 7.28/56/71/26 kPa,  # later')).toBe('abg       7.28/56/71/26 kPa,  # later');
+    expect(formatNote('oxygen room air ,')).toBe('oxygen    room air,');
+    expect(formatNote('@ 08:00, arrival')).toBe('@ 08:00, arrival');
+    expect(formatNote('@08:00 ,ward')).toBe('@ 08:00, ward');
+    expect(formatNote('@ day 2 08:00 ,')).toBe('@ day 2 08:00,');
+  });
+
+  it('leaves a line with a full stop or a comma that separates nothing as it is (both are reported)', () => {
+    const untouched = ['vitals hr 80.', 'vitals hr 80, rr 18.', 'vitals  temp 38.4 C.  # ok', 'vent mode VC.', ', vitals hr 80', 'vitals , hr 80', 'vitals hr 80,, rr 18', ',@ 08:00', '@, 08:00', 'note, settled', ','];
+    for (const line of untouched) expect(formatNote(line), line).toBe(line);
   });
 
   it('keeps a comment in its column when there is room, else two spaces after the content', () => {
@@ -121,11 +137,18 @@ describe('minimal edits', () => {
 
 // ── properties ─────────────────────────────────────────────────────────
 
-/** Characters that carry meaning: everything but blanks, whitespace and commas. */
-function inked(line: string): string {
+/** Characters that carry meaning: everything but blanks, whitespace and (unless `commas`) commas. */
+function inked(line: string, commas = false): string {
   let out = '';
-  for (const ch of line) if (!isBlank(ch.charCodeAt(0)) && !/[\s,]/.test(ch)) out += ch;
+  for (const ch of line) if (!isBlank(ch.charCodeAt(0)) && !/\s/.test(ch) && (commas || ch !== ',')) out += ch;
   return out;
+}
+
+/** Whether `part` can be had from `whole` by leaving characters out (the formatter may add commas between items, never remove one). */
+function isSubsequence(part: string, whole: string): boolean {
+  let k = 0;
+  for (let i = 0; i < whole.length && k < part.length; i++) if (whole[i] === part[k]) k++;
+  return k === part.length;
 }
 
 function words(text: string): string[] {
@@ -199,6 +222,7 @@ describe('formatter properties', () => {
         const other = b[i]!;
         expect(meaning(other), `line ${i + 1}: ${JSON.stringify(node.text)} → ${JSON.stringify(other.text)}`).toEqual(meaning(node));
         expect(inked(other.text)).toBe(inked(node.text));
+        expect(isSubsequence(inked(node.text, true), inked(other.text, true)), `a comma removed: ${JSON.stringify(node.text)} → ${JSON.stringify(other.text)}`).toBe(true);
         if (other.text !== node.text) expect(isBlank(other.text.charCodeAt(other.text.length - 1)), 'trailing blank').toBe(false);
       });
     }), { numRuns: FORMAT_RUNS });

@@ -2,7 +2,9 @@
  * fast-check generators of notes built from the registries (sections, keys, units, device and
  * mode words) with the mess people type: odd spacing, tabs and no-break spaces, optional and
  * doubled commas, glued units, case variants, decimal commas, comments, prose with emoji,
- * timepoints in every form, broken lines, blank lines, and mixed line endings.
+ * timepoints in every form, broken lines, blank lines, and mixed line endings; commas where
+ * they separate nothing (at the start of a line, after its first word, at its end), and a full
+ * stop that ends a line.
  */
 import fc from 'fast-check';
 import { fieldsInSection, type FieldDef } from '../../server/src/core/fields/registry';
@@ -57,6 +59,12 @@ function itemOf(field: FieldDef): fc.Arbitrary<string> {
   return fc.tuple(key, gap, valueOf(field), unit).map(([k, g, v, u]) => `${k}${g}${v}${u}`);
 }
 
+/** Before a line's first word, or between it and the next: blanks, sometimes a comma that separates nothing. */
+const indentOrComma = fc.oneof({ weight: 8, arbitrary: maybeGap }, { weight: 1, arbitrary: fc.constantFrom(',', ' , ', ',,') });
+const gapOrComma = fc.oneof({ weight: 8, arbitrary: gap }, { weight: 1, arbitrary: fc.constantFrom(',', ', ', ' ,') });
+/** How the items of a line end: mostly as they are; sometimes a comma or a full stop. */
+const itemsEnd = fc.oneof({ weight: 8, arbitrary: fc.constant('') }, { weight: 1, arbitrary: fc.constantFrom(',', ' ,', '.', ' .', '..') });
+
 const separator = fc.oneof({ weight: 4, arbitrary: fc.constantFrom(', ', ',', ' , ') }, { weight: 2, arbitrary: gap }, { weight: 1, arbitrary: fc.constantFrom(',, ', ' ,  ,') });
 
 const SECTION_WORDS: Readonly<Record<string, readonly string[]>> = Object.fromEntries(SECTIONS.map((s) => [s.id, [s.id, ...s.aliases]]));
@@ -87,25 +95,25 @@ const sectionIds = SECTIONS.map((s) => s.id).filter((id) => id !== 'note');
 export const sectionLine: fc.Arbitrary<string> = fc.constantFrom(...sectionIds).chain((section) => {
   const fields = fieldsInSection(section).filter((f) => f.id !== 'device');
   const items = fields.length > 0 ? fc.array(fc.constantFrom(...fields).chain(itemOf), { maxLength: 5 }) : fc.constant([] as string[]);
-  return fc.tuple(maybeGap, fc.constantFrom(...(SECTION_WORDS[section] ?? [section])).chain(cased), gap, lead(section), items, fc.array(separator, { minLength: 6, maxLength: 6 }), fc.oneof(fc.constant(''), fc.tuple(maybeGap, comment).map(([g, c]) => `${g} ${c}`)), maybeGap)
-    .map(([indent, word, g, l, its, seps, c, tail]) => {
+  return fc.tuple(indentOrComma, fc.constantFrom(...(SECTION_WORDS[section] ?? [section])).chain(cased), gapOrComma, lead(section), items, fc.array(separator, { minLength: 6, maxLength: 6 }), itemsEnd, fc.oneof(fc.constant(''), fc.tuple(maybeGap, comment).map(([g, c]) => `${g} ${c}`)), maybeGap)
+    .map(([indent, word, g, l, its, seps, end, c, tail]) => {
       const parts = [l, ...its].filter((p) => p.length > 0);
       const body = parts.map((p, i) => (i === 0 ? p : seps[i % seps.length]! + p)).join('');
-      return `${indent}${word}${body ? g + body : ''}${c}${tail}`;
+      return `${indent}${word}${body ? g + body + end : ''}${c}${tail}`;
     });
 });
 
-export const noteProseLine = fc.tuple(maybeGap, fc.constantFrom('note', 'text', 'comment', 'NOTE'), gap, prose, fc.oneof(fc.constant(''), comment.map((c) => `  ${c}`)), maybeGap).map((p) => p.join(''));
+export const noteProseLine = fc.tuple(indentOrComma, fc.constantFrom('note', 'text', 'comment', 'NOTE'), gapOrComma, prose, fc.oneof(fc.constant(''), comment.map((c) => `  ${c}`)), maybeGap).map((p) => p.join(''));
 
 const time = fc.oneof(
   fc.tuple(fc.constantFrom('day', 'Day', 'DAY'), gap, fc.integer({ min: 0, max: 9 }).map(String), fc.oneof(fc.constant(''), fc.tuple(gap, fc.constantFrom('07:40', '8:05', '23:59', '00:00', '25:10')).map((p) => p.join('')))).map((p) => p.join('')),
   fc.constantFrom('07:40', '14:50', '0:15', '+2h30', '+45m', '+1d', '+90min', '+2h', '+x', '2024-01-02'),
 );
 
-export const timepointLine = fc.tuple(maybeGap, fc.constantFrom('@', '@ ', '@  ', '@\t'), time, fc.oneof(fc.constant(''), fc.tuple(gap, prose).map((p) => p.join(''))), fc.oneof(fc.constant(''), comment.map((c) => `   ${c}`)), maybeGap).map(([i, at, t, l, c, tail]) => `${i}${at}${t}${l}${c}${tail}`);
+export const timepointLine = fc.tuple(indentOrComma, fc.constantFrom('@', '@ ', '@  ', '@\t', '@,', '@ , '), time, fc.oneof(fc.constant(''), fc.tuple(gapOrComma, prose).map((p) => p.join('')), fc.constantFrom(',', ' ,')), fc.oneof(fc.constant(''), comment.map((c) => `   ${c}`)), maybeGap).map(([i, at, t, l, c, tail]) => `${i}${at}${t}${l}${c}${tail}`);
 
 const otherLine = fc.oneof(
-  fc.constantFrom('', '', '   ', '\t', '# a comment', '   # indented comment  ', 'vitls hr 100', 'hr 118, rr 26', 'vitals hr, rr 18', 'abg 7.28/56/71/26/-2', 'vitals hr 88 120'),
+  fc.constantFrom('', '', '   ', '\t', ',', ' , ,', '# a comment', '   # indented comment  ', 'vitls hr 100', 'hr 118, rr 26', 'vitals hr, rr 18', 'abg 7.28/56/71/26/-2', 'vitals hr 88 120'),
   noteLine,
 );
 

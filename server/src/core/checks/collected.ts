@@ -14,7 +14,7 @@ function syntaxCheck(code: string, alias: SyntaxCheckAlias, title: string, sever
     if (node.issues.length === 0) return;
     for (const issue of node.issues) {
       if (issue.check !== alias) continue;
-      ctx.report({ range: toRange(node.line, issue.span), message: issue.message, fixes: issue.fixes.map((f) => lineFixToFix(node.line, f)) });
+      ctx.report({ range: toRange(node.line, issue.span), message: issue.message, fixes: issue.fixes.map((f) => lineFixToFix(node.line, f)), ...(issue.severity ? { severity: issue.severity } : {}) });
     }
   };
   return defineCheck({
@@ -69,10 +69,10 @@ export const badTime = syntaxCheck('PN104', 'bad-time', 'Unreadable time', 'erro
   fix: 'Write `@ day N HH:MM`, `@ HH:MM` or an offset such as `@ +2h30`. Calendar dates are not part of the format: use relative days.',
 });
 
-export const strayText = syntaxCheck('PN105', 'stray-text', 'Value without a key', 'error', {
-  fires: 'A number (or other text) appears where a key was expected.',
+export const strayText = syntaxCheck('PN105', 'stray-text', 'Stray text', 'error', {
+  fires: 'A number (or other text) appears where a key was expected. At information level: a full stop that ends a line of items (`hr 80.`, read as `hr 80`), or a comma that separates nothing (at the start of a line, right after its section word or `@`, or a second one between two items, where a value may be missing); the line is read without it.',
   example: 'vitals hr 118 120',
-  fix: 'Give the number its key (`rr 20`), or remove it.',
+  fix: 'Give the number its key (`rr 20`), or remove it. A full stop or a comma that separates nothing has a fix that removes it, also for the whole note.',
 });
 
 export const badShorthand = syntaxCheck('PN106', 'bad-shorthand', 'Unreadable shorthand gas', 'error', {

@@ -48,7 +48,7 @@ function renderUnitTable(): string[] {
     for (const a of u.aliases) if (a.toLowerCase() !== shown.toLowerCase()) spellings.add(a);
     rows.set(shown, spellings);
   }
-  const out = ['#### Units', '', 'Units are read in any case; each may also be written as listed. A unit of two words (`mm Hg`) is written apart from its number.', '', '| Unit | Also written |', '|---|---|'];
+  const out = ['#### Units', '', 'Units are read in any case; each may also be written as listed. A unit may be glued to its number or written after a blank, also one of two words (`80mm Hg` reads as `80 mm Hg`).', '', '| Unit | Also written |', '|---|---|'];
   for (const [shown, spellings] of rows) out.push(`| \`${shown}\` | ${spellings.size > 0 ? [...spellings].map((a) => `\`${a}\``).join(', ') : '—'} |`);
   out.push('');
   return out;

@@ -4,10 +4,15 @@
  * Canonical layout of a section line: the section word as written, padded so that items start
  * in column 10 (one space after a longer word); the lead (a shorthand gas, or an oxygen device
  * with its flow) as written, followed by `, ` when a comma was written after it and by one
- * space otherwise; items `key value unit` with single spaces, joined with `, `. A
- * unit glued to its number (`89%`) is written apart (`89 %`) when it is a known unit. Note
- * lines keep their prose exactly. Timepoint lines read `@ <time>  <label>` (time words single
- * spaced, label exactly as written).
+ * space otherwise; items `key value unit` with single spaces, joined with `, `, and a comma
+ * written after the last item kept. A unit glued to its number (`89%`) is written apart (`89 %`)
+ * when it is a known unit. Note lines keep their prose exactly. Timepoint lines read
+ * `@ <time>  <label>` (time words single spaced, label exactly as written), or `@ <time>, <label>`
+ * when a comma was written after the time.
+ *
+ * Nothing but blanks is ever removed: commas that separate nothing (at the start of a line, right
+ * after the section word, a second one between two items) and a full stop that ends the items are
+ * reported by the parser, so their lines are left as they are (below).
  *
  * Comments: a trailing comment keeps its column when the formatted content ends at least two
  * columns before it, else it follows the content after two spaces (so hand-aligned comments
@@ -106,13 +111,35 @@ function singleSpaced(text: string): string {
 function timepointContent(node: TimepointLine): string | null {
   if (!node.time) return null;
   const time = singleSpaced(node.time.text);
-  return `@ ${time}${node.label ? `  ${node.label.text}` : ''}`;
+  // `@ 08:00, arrival`: commas after the time are kept, glued to it.
+  const commas = commasIn(node.text, node.time.span.end, node.label ? node.label.span.start : bodyEnd(node));
+  return `@ ${time}${commas}${node.label ? `${commas ? ' ' : '  '}${node.label.text}` : ''}`;
+}
+
+/** Where the content of a line ends: at its comment, or at its end. */
+function bodyEnd(node: LineNode): number {
+  return node.comment ? node.comment.span.start : node.text.length;
+}
+
+/** The commas in `[from, to)` of a line (where only blanks and commas are), as a string of commas. */
+function commasIn(text: string, from: number, to: number): string {
+  let commas = '';
+  for (let i = from; i < to; i++) if (text.charCodeAt(i) === 0x2c) commas += ',';
+  return commas;
+}
+
+/** The comma written after the last item (`vitals hr 80, rr 18,`), if any: the grammar allows it, so it is kept. */
+function trailingComma(node: SectionLine): string {
+  let end = -1;
+  for (const item of node.items) end = Math.max(end, item.span.end, item.unit?.span.end ?? -1);
+  return end < 0 ? '' : commasIn(node.text, end, bodyEnd(node));
 }
 
 function sectionContent(node: SectionLine, unglue: boolean): string | null {
   const word = node.sectionToken.text;
-  const rest = node.section === 'note' ? (node.prose?.text ?? '') : itemsText(node, unglue);
-  if (rest === null) return null;
+  const items = node.section === 'note' ? (node.prose?.text ?? '') : itemsText(node, unglue);
+  if (items === null) return null;
+  const rest = node.section === 'note' ? items : items + trailingComma(node);
   if (!rest) return word;
   return `${word.padEnd(ITEM_COLUMN - 1)} ${rest}`;
 }

@@ -62,6 +62,14 @@ const NO_WORDS: readonly Word[] = Object.freeze([]);
 let handedOut: readonly Word[] = NO_WORDS;
 
 /**
+ * What `wordsOf` saw of the line besides its words: whether two commas came with no word
+ * between them (`hr 80,, rr 18`, also before the first word or after the last). One record for
+ * every line, read right after the call: few lines have such commas, and the parser looks for
+ * them only then.
+ */
+export const LEXED: { doubledComma: boolean } = { doubledComma: false };
+
+/**
  * Lets go of the texts the words handed out last still hold (a word's text may be a slice that
  * keeps its whole note alive): the parser calls this when it is done with a line.
  */
@@ -80,11 +88,17 @@ export function wordsOf(body: string, from = 0, intern?: (text: string) => strin
   handedOut = words;
   let i = from;
   let sawComma = false;
+  LEXED.doubledComma = false;
   const n = body.length;
   while (i < n) {
     const c = body.charCodeAt(i);
     if (isBlank(c)) { i++; continue; }
-    if (c === 0x2c /* , */) { sawComma = true; i++; continue; }
+    if (c === 0x2c /* , */) {
+      if (sawComma) LEXED.doubledComma = true;
+      sawComma = true;
+      i++;
+      continue;
+    }
     const start = i;
     while (i < n) {
       const d = body.charCodeAt(i);

@@ -7,7 +7,7 @@ import { fieldFor, FIELDS, type FieldDef } from '../fields/registry';
 import { SECTIONS, sectionByName, type SectionId } from '../fields/sections';
 import { isKnownUnitSpelling, UNITS } from '../fields/units';
 import { closest } from '../util/suggest';
-import { Chunk, isBlank, isDigit, leadingNumber, releaseWords, scanNumber, SCANNED, wordsOf, Word } from './lexer';
+import { Chunk, isBlank, isDigit, leadingNumber, LEXED, releaseWords, scanNumber, SCANNED, wordsOf, Word } from './lexer';
 import type {
   ItemNode,
   LineFix,
@@ -134,8 +134,13 @@ function parseLineUnsafe(text: string, line: number): LineNode {
   const comment: Token | null = hash >= 0 ? token(text.slice(hash), hash, text.length) : null;
   const body = hash >= 0 ? text.slice(0, bodyEnd) : text;
   const chunks = wordsOf(body, 0, intern);
+  const doubledComma = LEXED.doubledComma;
   const first = chunks[0];
-  if (!first) return { kind: 'blank', line, text, comment, issues: NONE };
+  if (!first) {
+    // A line of commas only (`,`): nothing is read from it, and a comma is not a blank.
+    const comma = body.indexOf(',');
+    return { kind: 'blank', line, text, comment, issues: comma < 0 ? NONE : [strayCommaIssue(body, comma, body.length, 'alone')] };
+  }
 
   if (first.text.charCodeAt(0) === 0x40 /* @ */) return parseTimepoint(body, chunks, line, text, comment);
 
@@ -147,14 +152,28 @@ function parseLineUnsafe(text: string, line: number): LineNode {
     const restStart = chunks[1]?.start;
     const restText = restStart === undefined ? '' : body.slice(restStart).trimEnd();
     const rest: Token | null = restStart === undefined ? null : token(restText, restStart, restStart + restText.length);
-    return { kind: 'unknown', line, text, comment, first: sectionToken, rest, issues: [unknownSectionIssue(first)] };
+    const issues = [unknownSectionIssue(first)];
+    strayCommas(body, chunks, false, false, issues);
+    return { kind: 'unknown', line, text, comment, first: sectionToken, rest, issues };
   }
   if (section.id === 'note') {
     const proseStart = chunks[1]?.start;
     const prose: Token | null = proseStart === undefined ? null : new CutToken(body, proseStart, proseEnd(body));
-    return { kind: 'section', line, text, comment, section: section.id, sectionToken, items: NONE, prose, issues: NONE };
+    // Commas inside the prose are prose; one before it separates nothing.
+    let noteIssues: readonly SyntaxIssue[] = NONE;
+    if (first.afterComma || chunks[1]?.afterComma) {
+      const found: SyntaxIssue[] = [];
+      strayCommas(body, chunks, true, false, found);
+      noteIssues = found;
+    }
+    return { kind: 'section', line, text, comment, section: section.id, sectionToken, items: NONE, prose, issues: noteIssues };
   }
   const issues: SyntaxIssue[] = [];
+  if (first.afterComma || chunks[1]?.afterComma || doubledComma) strayCommas(body, chunks, true, doubledComma, issues);
+  if (chunks.length > 1) {
+    const last = chunks[chunks.length - 1]!;
+    if (last.text.charCodeAt(last.text.length - 1) === 0x2e /* . */) leaveOutFullStop(chunks, issues);
+  }
   const items = parseItems(section.id, chunks, 1, issues, text);
   return { kind: 'section', line, text, comment, section: section.id, sectionToken, items, prose: null, issues: issues.length === 0 ? NONE : issues };
 }
@@ -182,11 +201,81 @@ function unknownSectionIssue(first: Word): SyntaxIssue {
   };
 }
 
+/** Where a comma that separates nothing is: what the message says of it. */
+type StrayCommaPlace = 'alone' | 'start' | 'after-first' | 'doubled';
+
+/**
+ * Commas that separate nothing, each run reported once (lightly: the line reads the same
+ * without them, and a fix removes them). Before the line's first word; when `afterFirst`,
+ * between it and the next word (after the section word or a lone `@`); when `between`, a comma
+ * after another with no word between them (between two words or after the last). A single
+ * comma after the last word is a separator the grammar allows, and is kept.
+ */
+function strayCommas(body: string, chunks: readonly Word[], afterFirst: boolean, between: boolean, issues: SyntaxIssue[]): void {
+  const first = chunks[0]!;
+  if (first.afterComma) issues.push(strayCommaIssue(body, 0, first.start, 'start'));
+  if (afterFirst && chunks[1]?.afterComma) issues.push(strayCommaIssue(body, first.end, chunks[1].start, 'after-first', first.text));
+  if (!between) return;
+  for (let k = 2; k <= chunks.length; k++) {
+    const from = chunks[k - 1]!.end;
+    const to = k < chunks.length ? chunks[k]!.start : body.length;
+    const comma = body.indexOf(',', from);
+    if (comma < 0 || comma >= to) continue;
+    const second = body.indexOf(',', comma + 1);
+    if (second >= 0 && second < to) issues.push(strayCommaIssue(body, second, to, 'doubled'));
+  }
+}
+
+/** The commas in `[from, to)` of `body` (blanks and commas only), from the first to the last, reported as separating nothing. */
+function strayCommaIssue(body: string, from: number, to: number, place: StrayCommaPlace, firstWord = ''): SyntaxIssue {
+  let start = from;
+  while (body.charCodeAt(start) !== 0x2c /* , */) start++;
+  let end = to;
+  while (body.charCodeAt(end - 1) !== 0x2c) end--;
+  const span = { start, end };
+  const next = body.indexOf(',', start + 1);
+  const several = next >= 0 && next < end;
+  const commas = several ? 'commas' : 'comma';
+  const read = `the line is read without ${several ? 'them' : 'it'}`;
+  const message =
+    place === 'alone' ? `${several ? 'Commas' : 'A comma'} alone on a line ${several ? 'separate' : 'separates'} nothing; the line reads as blank.`
+    : place === 'start' ? `${several ? 'Commas' : 'A comma'} at the start of the line ${several ? 'separate' : 'separates'} nothing; ${read}.`
+    : place === 'after-first' ? `${several ? 'Commas' : 'A comma'} right after \`${firstWord}\` ${several ? 'separate' : 'separates'} nothing; ${read}.`
+    : `Commas with nothing between them: is a value missing here? The line is read without the extra ${commas}.`;
+  const title = place === 'doubled' ? `Remove the extra ${commas}` : `Remove the ${commas}`;
+  return { check: 'stray-text', severity: 'information', span, message, fixes: [{ title, edits: [{ span, newText: '' }], preferred: true }] };
+}
+
+/**
+ * A full stop that ends the items of a line (`vitals hr 80, rr 18.`): people end lines so. It is
+ * cut from the last word before the items are read, so `80.` reads as 80 and `C.` as the unit C
+ * (a number never loses more than this last character: `80.5` and `.5` do not end with a full
+ * stop), and reported lightly with a fix that removes it. A full stop alone is left out.
+ */
+function leaveOutFullStop(chunks: Word[], issues: SyntaxIssue[]): void {
+  const last = chunks[chunks.length - 1]!;
+  const written = last.text;
+  const span = { start: last.end - 1, end: last.end };
+  let message: string;
+  if (written.length === 1) {
+    last.text = '';
+    chunks.pop();
+    message = 'A full stop at the end of the line is not part of any item; the line is read without it.';
+  } else {
+    last.text = intern(written.slice(0, -1));
+    last.end--;
+    message = `\`${written}\` is read as \`${last.text}\`: a full stop at the end of the line is left out.`;
+  }
+  issues.push({ check: 'stray-text', severity: 'information', span, message, fixes: [{ title: 'Remove the full stop', edits: [{ span, newText: '' }], preferred: true }] });
+}
+
 // ── timepoints ──────────────────────────────────────────────────────────
 
 function parseTimepoint(body: string, chunks: Word[], line: number, text: string, comment: Token | null): LineNode {
   const issues: SyntaxIssue[] = [];
   const first = chunks[0]!;
+  // `@, 08:00`: a comma between `@` and the time; one between the time and the label is kept.
+  if (first.afterComma || (first.text.length === 1 && chunks[1]?.afterComma)) strayCommas(body, chunks, first.text.length === 1, false, issues);
   const marker: Token = first.start === 0 ? MARKER_AT_LINE_START : token('@', first.start, first.start + 1);
   // `@07:40` is read like `@ 07:40`.
   const rest: Word[] = [];
@@ -754,10 +843,32 @@ function deviceWordAt(chunks: readonly Word[], i: number): { text: string; span:
 }
 
 /**
- * How many chunks the unit `unitWordAt` read last takes: 2 for a unit of two words (`mm Hg`),
- * else 1. One variable, read right after the call, rather than an object per unit.
+ * How many chunks the unit `unitWordAt` or `unitAfter` read last takes: 2 for a unit of two words
+ * (`mm Hg`), else 1 (for `unitAfter`, the chunks after the number's: 0 for no unit or one glued to
+ * the number, 1 for `80mm Hg`). One variable, read right after the call, rather than an object per unit.
  */
 let UNIT_CHUNKS = 1;
+
+/**
+ * The unit of a number whose chunk ends at chunk `i`: the unit glued to it, if any (`89%`), made
+ * whole by the next chunk when the two are a unit of two words (`80mm Hg`, `5cm H2O`, read as
+ * `80 mm Hg` is), else the unit after it (see `unitWordAt`). How many chunks from `i` it takes is
+ * left in UNIT_CHUNKS.
+ */
+function unitAfter(glued: Located | null, chunks: readonly Word[], i: number, section: SectionId, source: string): Located | null {
+  if (glued === null) {
+    const unit = unitWordAt(chunks, i, section, source);
+    if (unit === null) UNIT_CHUNKS = 0;
+    return unit;
+  }
+  const after = chunks[i];
+  if (after !== undefined && !after.afterComma && startsTwoWordUnit(glued.text, after.text)) {
+    UNIT_CHUNKS = 1;
+    return token(source.slice(glued.start, after.end), glued.start, after.end);
+  }
+  UNIT_CHUNKS = 0;
+  return glued;
+}
 
 /**
  * The chunk at `i` when it reads as the unit of the number before it, or the two chunks from `i`
@@ -814,8 +925,8 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
       if (group.count < 2 || group.count > 4) {
         issues.push({ check: 'bad-shorthand', span: { start: group.start, end: group.end }, message: `A shorthand gas has 2 to 4 numbers (pH/PCO2/PO2/HCO3); this one has ${group.count}.`, fixes: [] });
       } else {
-        const unit = glued ?? unitWordAt(chunks, i, section, source);
-        if (unit && unit !== glued) i += UNIT_CHUNKS;
+        const unit = unitAfter(glued, chunks, i, section, source);
+        i += UNIT_CHUNKS;
         group.parts.forEach((part, k) => {
           const keyName = SHORTHAND_KEYS[k]!;
           const isPressure = keyName === 'pco2' || keyName === 'po2';
@@ -839,9 +950,8 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
           const number = SCANNED.value;
           const comma = SCANNED.decimalComma;
           i++;
-          const glued = gluedUnit(next, length);
-          const unit = glued ?? unitWordAt(chunks, i, section, source);
-          if (unit !== glued) i += UNIT_CHUNKS; // the unit is the next chunk (or two)
+          const unit = unitAfter(gluedUnit(next, length), chunks, i, section, source);
+          i += UNIT_CHUNKS;
           const keyName = dev.text.toLowerCase() === 'cpap' ? 'level' : 'flow';
           items[count++] = numberItem(null, keyName, 'device-flow', fieldFor(section, keyName) ?? null, source, number, next.start, next.start + length, comma, unit, next.start);
         }
@@ -892,8 +1002,8 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
         if (group) {
           value = group;
           i += used;
-          unit = glued ?? unitWordAt(chunks, i, section, source);
-          if (unit && unit !== glued) i += UNIT_CHUNKS;
+          unit = unitAfter(glued, chunks, i, section, source);
+          i += UNIT_CHUNKS;
           if (field?.kind === 'number') {
             // `hr 80/90`: numbers joined by a slash where the key takes one; nothing would be read from it.
             issues.push({ check: 'missing-value', span: { start: key.start, end: group.end }, message: `\`${key.text}\` takes one number; \`${group.text}\` is ${countWord(group.count)} numbers, so it is not read.`, fixes: [] });
@@ -905,9 +1015,8 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
           const number = SCANNED.value;
           const comma = SCANNED.decimalComma;
           i++;
-          const glued = gluedUnit(next, length);
-          unit = glued ?? unitWordAt(chunks, i, section, source);
-          if (unit !== glued) i += UNIT_CHUNKS; // the unit is the next chunk (or two)
+          unit = unitAfter(gluedUnit(next, length), chunks, i, section, source);
+          i += UNIT_CHUNKS;
           items[count++] = numberItem(key.text, keyName, null, field, source, number, next.start, next.start + length, comma, unit, key.start);
           if (field?.kind === 'pair') {
             // `bp 120`: a key that takes two numbers with one; nothing would be read from it.

@@ -3,7 +3,7 @@
  * complete even when lines are broken. Ranges are line-relative character offsets (UTF-16)
  * plus the node's line number; `toRange` turns a span into an editor range.
  */
-import type { Fix, Range } from '../types';
+import type { Fix, Range, Severity } from '../types';
 import type { FieldDef } from '../fields/registry';
 import type { SectionId } from '../fields/sections';
 
@@ -70,6 +70,8 @@ export interface SyntaxIssue {
   readonly span: Span;
   readonly message: string;
   readonly fixes: readonly LineFix[];
+  /** Set when the finding is lighter than its check's default (a full stop or a comma that separates nothing). */
+  readonly severity?: Severity;
 }
 
 /** A fix confined to one line: spans are on the issue's own line. */
