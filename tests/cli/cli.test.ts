@@ -121,6 +121,15 @@ describe('pneumark show', async () => {
     expect(broken.out()).toMatch(/vitals {3}SpO2 104 % \(not used\)\n {6}✖ error PN306/);
   });
 
+  it('shows a value whose unit could not be read as written, never as a unit without its number', async () => {
+    const out = io('@ 08:00\nabg po2 71 mmhgg\nvitals temp 37 mmHg\nvent plateau 3 kPa\n');
+    await run(['show', '-'], out);
+    const text = out.out();
+    expect(text).toContain('PaO2 71 mmhgg (not used)');
+    expect(text).toContain('temp 37 mmHg (not used)');
+    expect(text).toContain('plateau 3 kPa (not used)');
+  });
+
   it('prints derived values, what is missing, and readings under each timepoint', async () => {
     const out = io();
     await run(['show', 'samples/icu-ventilated-lung-injury.pneu'], out);

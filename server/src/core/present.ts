@@ -21,12 +21,13 @@ export function decimalsFor(unitId: string, fallback: number): number {
 /**
  * `71 mmHg`, `0.40`, `female`, `96/58 mmHg`: the value in its canonical unit (or `unitId`), never
  * with fewer decimals than it was written with (`pco2 7.5` shows as 7.5 mmHg, `fio2 0.355` as 0.355).
+ * A value whose unit could not be read is shown as written (`71 mmhgg`, `3 kPa` for a plateau).
  */
 export function formatStated(s: StatedValue, unitId?: string): string {
   if (s.word !== null) return s.word;
   const target = unitById(unitId ?? s.unit ?? '') ?? unitById(s.unit ?? '');
   const number = statedNumber(s, unitId);
-  if (number === null || !target) return s.item.value?.text ?? '';
+  if (number === null || !target) return asWritten(s);
   const unit = target.id === 'fraction' || target.id === 'ph' ? '' : ` ${displayUnit(target.id)}`;
   return `${number}${unit}`;
 }
@@ -39,7 +40,13 @@ export function statedNumber(s: StatedValue, unitId?: string): string | null {
   if (s.word !== null || !field || !canonical || !target) return null;
   const decimals = Math.max(decimalsFor(target.id, field.decimals), writtenPrecisionIn(s, target));
   const show = (v: number) => formatNumber(convert(v, canonical, target) ?? v, decimals);
-  return s.parts ? s.parts.map(show).join('/') : s.value !== null ? show(s.value) : '';
+  return s.parts ? s.parts.map(show).join('/') : s.value !== null ? show(s.value) : null;
+}
+
+/** The value and unit as the note wrote them: `71 mmhgg`. */
+function asWritten(s: StatedValue): string {
+  const text = s.item.value?.text ?? '';
+  return s.item.unit ? `${text} ${s.item.unit.text}` : text;
 }
 
 /**
@@ -139,7 +146,7 @@ export function statedInKpa(s: StatedValue): string | null {
 export function statedKpaNumber(s: StatedValue): string | null {
   if (s.unit !== 'mmHg' || !isKpaField(s.fieldId)) return null;
   const number = statedNumber(s, 'kPa');
-  return number === null || number === '' ? null : number;
+  return number;
 }
 
 /** The value in the other unit system, when the field has one (mmHg ↔ kPa, °C ↔ °F, ...). */
