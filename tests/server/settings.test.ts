@@ -46,6 +46,18 @@ describe('the waterVapour setting', () => {
     expect(effectiveSettings(readClientSettings({}).settings, null).analysis.waterVapour).toBe('fixed');
   });
 
+  it('says what a setting takes in plain words, in the editor and in pneumark.config.json', () => {
+    expect(readClientSettings({ gasUnit: 'kpa', hypoxaemiaBelowMmhg: 5, privacyChecks: 'yes' }).problem).toBe(
+      'pneumark.gasUnit: must be one of "mmHg" or "kPa"; pneumark.hypoxaemiaBelowMmhg: must be at least 20; pneumark.privacyChecks: must be true or false',
+    );
+    expect(parseProjectConfig('{ "hufnerConstant": 1.35, "disabledChecks": "PN101", "bogus": 1, "hints": { "foo": true } }').problems.map((p) => p.message)).toEqual([
+      'pneumark.config.json: `hufnerConstant`: must be one of 1.34, 1.36 or 1.39. Pneumark uses its defaults until this is fixed.',
+      'pneumark.config.json: `disabledChecks`: must be a list in brackets. Pneumark uses its defaults until this is fixed.',
+      'pneumark.config.json: `hints`: `foo` is not a setting here. Pneumark uses its defaults until this is fixed.',
+      'pneumark.config.json: `bogus` is not a setting. Pneumark uses its defaults until this is fixed.',
+    ]);
+  });
+
   it('drops an invalid value from the editor with a message naming it, keeping the other keys', () => {
     const { settings, problem } = readClientSettings({ waterVapour: '37C', gasUnit: 'kPa' });
     expect(settings.analysis).toEqual({ gasUnit: 'kPa' });

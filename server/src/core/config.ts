@@ -10,6 +10,7 @@ import { CHECKS } from './checks/registry';
 import { HINT_CATEGORIES, type HintCategory } from './service/types';
 import { settingsSchema, type Settings } from './settings';
 import type { Range } from './types';
+import { wordList } from './util/format';
 
 export const CONFIG_FILE_NAME = 'pneumark.config.json';
 
@@ -39,6 +40,36 @@ export interface ParsedConfig {
   readonly problems: readonly ConfigProblem[];
 }
 
+/**
+ * A setting's problem in plain words, the setting named before it (`must be one of "mmHg" or
+ * "kPa"`), rather than zod's own (`Invalid option: expected one of "mmHg"|"kPa"`).
+ */
+export function settingProblem(issue: z.core.$ZodRawIssue): string {
+  switch (issue.code) {
+    case 'unrecognized_keys':
+      return `${wordList(issue.keys.map((k) => `\`${k}\``))} ${issue.keys.length === 1 ? 'is not a setting' : 'are not settings'}${issue.path?.length ? ' here' : ''}`;
+    case 'invalid_value':
+      return `must be ${issue.values.length === 1 ? JSON.stringify(issue.values[0]) : `one of ${wordList(issue.values.map((v) => JSON.stringify(v)), 'or')}`}`;
+    case 'invalid_union': {
+      // A choice of literal values (hufnerConstant: 1.34, 1.36 or 1.39): each branch names its value.
+      const values = issue.errors.flat().flatMap((e) => (e.code === 'invalid_value' ? e.values : []));
+      return values.length > 0 ? `must be one of ${wordList(values.map((v) => JSON.stringify(v)), 'or')}` : 'is not one of the values it takes';
+    }
+    case 'too_small':
+      return issue.origin === 'array' ? `must list at least ${String(issue.minimum)}` : issue.origin === 'string' ? 'must not be empty' : `must be at least ${String(issue.minimum)}`;
+    case 'too_big':
+      return issue.origin === 'array' ? `must list at most ${String(issue.maximum)}` : issue.origin === 'string' ? `must be at most ${String(issue.maximum)} characters long` : `must be at most ${String(issue.maximum)}`;
+    case 'invalid_type':
+      return `must be ${TYPE_WORDS[issue.expected] ?? 'of another kind'}`;
+    default:
+      return 'is not valid';
+  }
+}
+
+const TYPE_WORDS: Readonly<Record<string, string>> = {
+  number: 'a number', boolean: 'true or false', string: 'a string in quotes', array: 'a list in brackets', object: 'an object in braces',
+};
+
 const WHOLE_FIRST_LINE: Range = { start: { line: 0, character: 0 }, end: { line: 0, character: 1 } };
 
 export function parseProjectConfig(file: string): ParsedConfig {
@@ -51,7 +82,7 @@ export function parseProjectConfig(file: string): ParsedConfig {
   } catch (error) {
     return { settings: {}, hints: {}, problems: [notJsonProblem(text, error)] };
   }
-  const parsed = projectConfigSchema.safeParse(data);
+  const parsed = projectConfigSchema.safeParse(data, { error: settingProblem });
   // Looked for even when another setting is invalid, so that one reading names every problem.
   const unknownChecks = unknownDisabledChecks(text, data);
   if (!parsed.success) {
@@ -60,8 +91,8 @@ export function parseProjectConfig(file: string): ParsedConfig {
       hints: {},
       problems: [...parsed.error.issues.map((issue) => {
         const key = issue.path.length > 0 ? String(issue.path[issue.path.length - 1]) : (issue.code === 'unrecognized_keys' ? (issue as { keys?: string[] }).keys?.[0] ?? '' : '');
-        const where = issue.path.length > 0 ? `\`${issue.path.join('.')}\`` : 'the file';
-        return { message: `${CONFIG_FILE_NAME}: ${where}: ${issue.message}. Pneumark uses its defaults until this is fixed.`, range: rangeOfKey(text, key) };
+        const where = issue.path.length > 0 ? `\`${issue.path.join('.')}\`: ` : '';
+        return { message: `${CONFIG_FILE_NAME}: ${where}${issue.message}. Pneumark uses its defaults until this is fixed.`, range: rangeOfKey(text, key) };
       }), ...unknownChecks],
     };
   }

@@ -6,7 +6,7 @@
  * analysis settings, so a team's note conventions are the same in every editor and in CI.
  */
 import { z } from 'zod';
-import type { ParsedConfig } from '../core/config';
+import { settingProblem, type ParsedConfig } from '../core/config';
 import { HINT_CATEGORIES, type HintCategory } from '../core/service/types';
 import { settingsSchema, withDefaults, type Settings } from '../core/settings';
 
@@ -35,7 +35,7 @@ export function readClientSettings(raw: unknown): { settings: ClientSettings; pr
   const problems: string[] = [];
   const take = <S extends z.ZodType>(key: string, schema: S, value: unknown): z.output<S> | undefined => {
     if (value === undefined || value === null) return undefined;
-    const parsed = schema.safeParse(value);
+    const parsed = schema.safeParse(value, { error: settingProblem });
     if (parsed.success) return parsed.data;
     problems.push(`pneumark.${key}: ${parsed.error.issues.map((i) => i.message).join(', ')}`);
     return undefined;
