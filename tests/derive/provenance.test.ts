@@ -62,6 +62,14 @@ describe('inputs and where they came from', () => {
     expect(d.missing.find((m) => m.id === 'aa_gradient')?.needs).toEqual(['fio2 (or an oxygen line)']);
   });
 
+  it('asks for the FiO2 on the vent line when the patient is on the ventilator, not for an oxygen line', () => {
+    // A vent line ends the oxygen line before it, with its FiO2: the FiO2 goes on the vent line.
+    const d = derivation('@ 08:00\noxygen venturi, fio2 0.28\nvent mode VC, peep 5\nabg 7.40/40/90/24');
+    expect(d.missing.find((m) => m.id === 'pf_ratio')?.message).toBe('add fio2 (on the vent line) to get P/F');
+    expect(derivation('@ 08:00\nvent peep 5\n@ 09:00\nabg 7.40/40/90/24').missing.find((m) => m.id === 'pf_ratio')?.message).toBe('add fio2 (on the vent line) to get P/F');
+    expect(derivation('@ 08:00\nvent peep 5\n@ 09:00\noxygen cannula 2\nabg 7.40/40/90/24').missing.find((m) => m.id === 'pf_ratio')?.message).toBe("add fio2 (a cannula's FiO2 is only an estimate) to get P/F");
+  });
+
   it('names each key to add once, as a list a sentence writes, also through another derived value', () => {
     // The delta ratio needs the anion gap (na, cl, hco3) and an hco3 of its own: hco3 once.
     const labs = derivation('@ 08:00\nlabs na 140');

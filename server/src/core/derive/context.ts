@@ -197,6 +197,8 @@ export class DeriveContext {
     if (device && (device.word === 'cannula' || device.word === 'mask')) return `fio2 (a ${device.word}'s FiO2 is only an estimate)`;
     // An oxygen line is there, without its FiO2 (`oxygen venturi 8`): the FiO2 goes on that line.
     if (device && device.word !== 'room air') return `fio2 (on the ${device.word} line)`;
+    // On a ventilator (a vent line ends the oxygen line before it), the FiO2 goes on the vent line.
+    if (!device && VENT_SETTINGS.some((id) => this.timepoint.values.originOf(id) !== null)) return 'fio2 (on the vent line)';
     return 'fio2 (or an oxygen line)';
   }
 
@@ -281,6 +283,9 @@ function usesCarried(terms: readonly Term[], c: DeriveContext): boolean {
   }
   return false;
 }
+
+/** Settings that only a vent line states: one in force means the patient is on the ventilator. */
+const VENT_SETTINGS: readonly string[] = ['mode', 'vt', 'vent_rate', 'peep', 'pressure_support'];
 
 const NOT_IN_DOMAIN: Outcome = { kind: 'na', reason: 'the inputs are outside the range where the formula holds' };
 
