@@ -121,6 +121,13 @@ describe('pneumark show', async () => {
     expect(broken.out()).toMatch(/vitals {3}SpO2 104 % \(not used\)\n {6}✖ error PN306/);
   });
 
+  it('counts information findings in its first line as check does, not as readings (which it prints in full below)', async () => {
+    const out = io();
+    await run(['show', 'samples/home-oxygen-exacerbation.pneu'], out);
+    const [first] = out.out().split('\n');
+    expect(first).toBe('samples/home-oxygen-exacerbation.pneu  4 timepoints  17 info');
+  });
+
   it('shows a value whose unit could not be read as written, never as a unit without its number', async () => {
     const out = io('@ 08:00\nabg po2 71 mmhgg\nvitals temp 37 mmHg\nvent plateau 3 kPa\n');
     await run(['show', '-'], out);

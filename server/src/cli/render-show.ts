@@ -144,6 +144,8 @@ function summary(c: SeverityCounts, p: Paint): string {
   const parts: string[] = [];
   if (c.error) parts.push(p.red(`${c.error} error${c.error === 1 ? '' : 's'}`));
   if (c.warning) parts.push(p.yellow(`${c.warning} warning${c.warning === 1 ? '' : 's'}`));
-  if (c.information) parts.push(p.blue(`${c.information} reading${c.information === 1 ? '' : 's'}`));
+  // As `check` counts them: information findings are the notable readings and any other finding
+  // at information level, never every reading line printed below.
+  if (c.information) parts.push(p.blue(`${c.information} info`));
   return parts.length > 0 ? parts.join(', ') : p.green('no findings');
 }
