@@ -382,6 +382,8 @@ describe('commas that separate nothing', () => {
     expect(reported(',, @ 08:00 ward')).toEqual([['information', ',,', ['Remove the commas']]]);
     expect(reported('@, 08:00 ward')).toEqual([['information', ',', ['Remove the comma']]]);
     expect(reported(' , ')).toEqual([['information', ',', ['Remove the comma']]]);
+    // No fix that would empty the line: between the `\r` and `\n` of a note it would join two lines.
+    expect(reported(', ,')).toEqual([['information', ', ,', []]]);
     const text = ', vitals hr 80';
     expect(section(text).items.map((i) => summary(text, i))).toEqual(['hr | 80 | <none>']);
     expect(line(text).issues[0]?.message).toBe('A comma at the start of the line separates nothing; the line is read without it.');

@@ -139,7 +139,7 @@ function parseLineUnsafe(text: string, line: number): LineNode {
   if (!first) {
     // A line of commas only (`,`): nothing is read from it, and a comma is not a blank.
     const comma = body.indexOf(',');
-    return { kind: 'blank', line, text, comment, issues: comma < 0 ? NONE : [strayCommaIssue(body, comma, body.length, 'alone')] };
+    return { kind: 'blank', line, text, comment, issues: comma < 0 ? NONE : [strayCommaIssue(body, comma, body.length, 'alone', '', text.length)] };
   }
 
   if (first.text.charCodeAt(0) === 0x40 /* @ */) return parseTimepoint(body, chunks, line, text, comment);
@@ -226,8 +226,13 @@ function strayCommas(body: string, chunks: readonly Word[], afterFirst: boolean,
   }
 }
 
-/** The commas in `[from, to)` of `body` (blanks and commas only), from the first to the last, reported as separating nothing. */
-function strayCommaIssue(body: string, from: number, to: number, place: StrayCommaPlace, firstWord = ''): SyntaxIssue {
+/**
+ * The commas in `[from, to)` of `body` (blanks and commas only), from the first to the last,
+ * reported as separating nothing, with a fix that removes them unless that would leave the line
+ * (`lineLength` long) empty: an empty line between the `\r` and the `\n` of a note would make
+ * one line end of two, and join the lines around it.
+ */
+function strayCommaIssue(body: string, from: number, to: number, place: StrayCommaPlace, firstWord = '', lineLength = -1): SyntaxIssue {
   let start = from;
   while (body.charCodeAt(start) !== 0x2c /* , */) start++;
   let end = to;
@@ -243,7 +248,8 @@ function strayCommaIssue(body: string, from: number, to: number, place: StrayCom
     : place === 'after-first' ? `${several ? 'Commas' : 'A comma'} right after \`${firstWord}\` ${several ? 'separate' : 'separates'} nothing; ${read}.`
     : `Commas with nothing between them: is a value missing here? The line is read without the extra ${commas}.`;
   const title = place === 'doubled' ? `Remove the extra ${commas}` : `Remove the ${commas}`;
-  return { check: 'stray-text', severity: 'information', span, message, fixes: [{ title, edits: [{ span, newText: '' }], preferred: true }] };
+  const fixes = start === 0 && end === lineLength ? NONE : [{ title, edits: [{ span, newText: '' }], preferred: true }];
+  return { check: 'stray-text', severity: 'information', span, message, fixes };
 }
 
 /**
