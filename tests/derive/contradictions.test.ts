@@ -61,3 +61,27 @@ describe('what to add for an FiO2 (the grammar: FiO2 in force)', () => {
     expect(none.missing.find((m) => m.id === 'pf_ratio')?.message).toMatch(/^add fio2 \(or an oxygen line\) to get/);
   });
 });
+
+describe('a PaO2 above the alveolar PO2 the FiO2 allows (PN401)', () => {
+  // Room air at PB 760 with PaCO2 60: PAO2 = 0.21 × (760 − 47) − 60 ÷ 0.8 = 74.7 mmHg (alveolar gas
+  // equation, as above), so a PaO2 of 160 cannot be: the FiO2, the unit or the sample is wrong.
+  const impossible = '@ 08:00\noxygen room air\nabg 7.40/60/160/36';
+
+  it('gives no oxygenation or respiratory failure reading from that PaO2, only PN401 and what does not rest on it', () => {
+    expect(0.21 * (760 - 47) - 60 / 0.8).toBeCloseTo(74.7, 1);
+    const r = readings(impossible);
+    expect(r.oxygenation).toBe('PaO2 160 mmHg: oxygenation not read, as the FiO2, pressure, PaCO2 and PaO2 stated cannot go together (see PN401).');
+    expect(r['respiratory-failure']).toBe('Respiratory failure not read: the FiO2, pressure, PaCO2 and PaO2 stated cannot go together (see PN401).');
+    // PaCO2 60 is read as it stands (hypercapnia PaCO2 > 50 mmHg: common practice, no source).
+    expect(r.ventilation).toMatch(/^PaCO2 60 mmHg: consistent with hypercapnia/);
+    const codes = checkNote(impossible).findings.map((f) => f.code);
+    expect(codes).toContain('PN401');
+    expect(codes).not.toContain('PN410');
+    expect(codes).not.toContain('PN412');
+  });
+
+  it('reads a PaO2 within rounding of the alveolar PO2 as usual', () => {
+    // PAO2 99.7 mmHg with PaCO2 40 on air; a PaO2 of 100 is within the 5 mmHg allowed for rounding.
+    expect(readings('@ 08:00\noxygen room air\nabg 7.40/40/100/24').oxygenation).toBe('PaO2 100 mmHg: consistent with adequate arterial oxygenation.');
+  });
+});

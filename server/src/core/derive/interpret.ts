@@ -10,6 +10,7 @@ import type { Settings } from '../settings';
 import { formatAgainst, formatNumber, formatShort, rangeAgainst } from '../util/format';
 import { KPA_DECIMALS, kpaFromMmhg, kpaNumber, showsKpa } from '../present';
 import { classification } from './acid-base';
+import { ALVEOLAR_ROUNDING_MMHG } from './gas-exchange';
 import type { DeriveContext } from './context';
 import type { Interpretation } from './model';
 
@@ -86,8 +87,16 @@ export function interpret(c: DeriveContext, settings: Settings): Interpretation[
   const device = fio2 === null ? c.word('device')?.word ?? null : null;
   const oxygenDevice = device !== null && device !== 'room air' ? device : null;
 
+  // A PaO2 above the alveolar PO2 the FiO2, pressure and PaCO2 allow (PN401): one of them is wrong,
+  // so nothing is read from the PaO2 until the note is mended (as PN402 holds the acid–base reading).
+  const alveolar = pao2 ? c.derivedValue('pao2_alveolar') : null;
+  const impossible = pao2 !== null && alveolar !== null && pao2.value > alveolar.value + ALVEOLAR_ROUNDING_MMHG;
+  const notRead = 'the FiO2, pressure, PaCO2 and PaO2 stated cannot go together (see PN401)';
+
   // Oxygenation
-  if (pao2) {
+  if (pao2 && impossible) {
+    push('oxygenation', `PaO2 ${gas.value(pao2.value)}: oxygenation not read, as ${notRead}.`, ['pao2', 'pao2_alveolar'], false);
+  } else if (pao2) {
     const pf = c.derivedValue('pf_ratio');
     // Numbers are shown with the decimals that keep them on their side of the thresholds named.
     const hypoxaemiaAt = settings.hypoxaemiaBelowMmhg;
@@ -130,7 +139,9 @@ export function interpret(c: DeriveContext, settings: Settings): Interpretation[
   }
 
   // Respiratory failure
-  if (pao2 && paco2) {
+  if (pao2 && paco2 && impossible) {
+    push('respiratory-failure', `Respiratory failure not read: ${notRead}.`, ['pao2', 'paco2', 'pao2_alveolar'], false);
+  } else if (pao2 && paco2) {
     if (hypoxaemic && hypercapnic) push('respiratory-failure', 'Consistent with type 2 (hypercapnic) respiratory failure: hypoxaemia with hypercapnia.', ['pao2', 'paco2']);
     else if (hypoxaemic) push('respiratory-failure', 'Consistent with type 1 (hypoxaemic) respiratory failure: hypoxaemia with normal or low PaCO2.', ['pao2', 'paco2']);
     else if (hypercapnic && onOxygen) push('respiratory-failure', `Consistent with type 2 (hypercapnic) respiratory failure, with PaO2 held up by supplemental oxygen (FiO2 ${formatNumber(fio2.value, 2)}).`, ['pao2', 'paco2', 'fio2']);
