@@ -1,5 +1,5 @@
 /** Ventilator settings beyond the usual lung-protective limits. */
-import { SOURCES } from '../physiology';
+import { PLATEAU_LIMIT_CMH2O, SOURCES } from '../physiology';
 import { toRange } from '../syntax/tree';
 import { formatAgainst } from '../util/format';
 import { derivedValueOf } from '../derive/registry';
@@ -7,8 +7,6 @@ import { defineCheck, type TimepointContext } from './check';
 
 /** Upper end of the tidal-volume range of the ARDS Network protocol (mL/kg PBW). */
 export const VT_PER_KG_LIMIT = 8;
-/** Plateau pressure limit of the ARDS Network protocol (cmH2O). */
-export const PLATEAU_LIMIT_CMH2O = 30;
 /** Driving pressure commonly flagged (cmH2O) (common practice, after Amato 2015). */
 export const DRIVING_PRESSURE_LIMIT_CMH2O = 15;
 
@@ -48,7 +46,7 @@ export const plateauHigh = defineCheck({
     example: '@ 08:00\nvent peep 18, plateau 33',
     fix: 'Confirm the measurement (a true inspiratory hold); a clinical review decides what follows.',
   },
-  source: SOURCES['ardsnet-2000'],
+  source: SOURCES['ardsnet-2000-plateau'],
   runTimepoint(ctx) {
     if (ctx.timepoint.values.originOf('plateau') !== 'here') return;
     const plat = ctx.timepoint.values.get('plateau');

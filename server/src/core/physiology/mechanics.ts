@@ -9,10 +9,14 @@
  */
 import { allFinite, finiteOrNull } from './numeric';
 
+const ARDSNET_2000 =
+  'The Acute Respiratory Distress Syndrome Network. Ventilation with lower tidal volumes as compared with traditional tidal volumes for acute lung injury and the acute respiratory distress syndrome. N Engl J Med 2000;342(18):1301–1308';
+
 /** Citations for the formulas in this module (key → citation). */
 export const SOURCES = Object.freeze({
   'ardsnet-2000':
-    'The Acute Respiratory Distress Syndrome Network. Ventilation with lower tidal volumes as compared with traditional tidal volumes for acute lung injury and the acute respiratory distress syndrome. N Engl J Med 2000;342(18):1301–1308 (predicted body weight: male 50 + 0.91 × (height cm − 152.4), female 45.5 + 0.91 × (height cm − 152.4)) (from memory).',
+    `${ARDSNET_2000} (predicted body weight: male 50 + 0.91 × (height cm − 152.4), female 45.5 + 0.91 × (height cm − 152.4)) (from memory).`,
+  'ardsnet-2000-plateau': `${ARDSNET_2000} (plateau pressure kept at or below 30 cmH2O) (from memory).`,
   'amato-2015':
     'Amato MBP, Meade MO, Slutsky AS, et al. Driving pressure and survival in the acute respiratory distress syndrome. N Engl J Med 2015;372(8):747–755 (from memory).',
   'respiratory-mechanics':
@@ -28,6 +32,9 @@ export const SOURCES = Object.freeze({
 } as const);
 
 export type Sex = 'male' | 'female';
+
+/** Plateau pressure limit of the ARDS Network protocol (cmH2O). Source: `ardsnet-2000-plateau`. */
+export const PLATEAU_LIMIT_CMH2O = 30;
 
 /** Height (cm) at which the ARDSNet formulas give their base weights (60 inches). Source: `ardsnet-2000`. */
 export const PBW_REFERENCE_HEIGHT_CM = 152.4;
