@@ -97,7 +97,10 @@ describe('bidirectional controls', () => {
     expect(visible('a\u202ab\u202bc\u202cd\u202de\u202ef')).toBe('a\\u{202A}b\\u{202B}c\\u{202C}d\\u{202D}e\\u{202E}f');
     expect(visible('\u2066\u2067\u2068\u2069')).toBe('\\u{2066}\\u{2067}\\u{2068}\\u{2069}');
     expect(visible('\u200e\u200f\u061c')).toBe('\\u{200E}\\u{200F}\\u{061C}');
-    expect(visible('\u200b\u2028\u2060')).toBe('\u200b\u2028\u2060');
+    // Separators and invisible characters are shown too; the joiners of scripts and emoji are kept.
+    expect(visible('\u2028\u2029')).toBe('\\u{2028}\\u{2029}');
+    expect(visible('h\u200br \u2060\ufeff')).toBe('h\\u{200B}r \\u{2060}\\u{FEFF}');
+    expect(visible('\u200c\u200d 👩\u200d⚕️')).toBe('\u200c\u200d 👩\u200d⚕️');
     expect(visible('סימן שם · علامة')).toBe('סימן שם · علامة');
     expect(visible('\u001b\u202e')).toBe('\\x1b\\u{202E}');
   });
@@ -121,6 +124,13 @@ describe('bidirectional controls', () => {
     await run(['check', '-'], checked);
     expect(checked.out()).toContain('<stdin>:2:14  error  PN105 stray-text  `\\u{202E}bpm` is not a key');
     expect(checked.out()).toContain('<stdin>:5:15  error  PN205 unknown-word  `can\\u{202E}ula` is not a known value');
+  });
+
+  it('an invisible character in a key is shown, so `h\u{200B}r` does not read as `hr` in "is not a key"', async () => {
+    const checked = io('@ day 1 08:00\nvitals h\u200br 80\n');
+    await run(['check', '-'], checked);
+    expect(checked.out()).toMatch(/`h\\u\{200B\}r` is not a key/);
+    expect(checked.out()).not.toContain('\u200b');
   });
 
   it('in file names are written escaped by check, show, fmt and in the errors that name a file', async () => {
