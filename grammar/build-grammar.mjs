@@ -320,11 +320,12 @@ function timepointRule() {
     LEAD, cap('keyword.operator.timepoint', '@'), '[\\s,]*(?:',
     // day N [HH:MM]; after `day`, a chunk that is no day number, or no clock after it, is marked
     cap('keyword.other.day', ci('day')), '(?:', GAP, '(?:',
-    cap('constant.other.time', '[0-9]+'), '(?:', GAP, '(?:', cap('constant.other.time', CLOCK), END, '|', cap('invalid.illegal.time', `[0-9][^\\s,#:]*:${CHUNK_REST}`), '))?', END,
+    cap('constant.other.time', '[0-9]+'), '(?:', GAP, '(?:', cap('constant.other.time', CLOCK), VALUE_END, '|', cap('invalid.illegal.time', `[0-9][^\\s,#:]*:${CHUNK_REST}`), '))?', VALUE_END,
     '|', cap('invalid.illegal.time', `[^\\s,#]${CHUNK_REST}`),
-    '))?', END,
-    '|', cap('constant.other.time', CLOCK), END,
-    '|', cap('constant.other.time', OFFSET), END,
+    '))?', VALUE_END,
+    // a time may end the line with a full stop glued on (`@ 08:00.`): read without it, as after items
+    '|', cap('constant.other.time', CLOCK), VALUE_END,
+    '|', cap('constant.other.time', OFFSET), VALUE_END,
     // an offset, clock or date that does not read, or any chunk starting with a digit
     '|', cap('invalid.illegal.time', `[0-9+]${CHUNK_REST}`),
     ')?',
@@ -335,7 +336,8 @@ function timepointRule() {
     beginCaptures: begin.captures,
     end: '$',
     name: sc('meta.timepoint'),
-    patterns: [{ include: '#comment' }, { match: PROSE, name: sc('entity.name.section.timepoint') }],
+    // A full stop right after the time is the one the parser leaves out; one after a label is prose.
+    patterns: [{ include: '#comment' }, { match: `\\G${FULL_STOP}`, name: sc('punctuation.terminator.full-stop') }, { match: PROSE, name: sc('entity.name.section.timepoint') }],
   };
 }
 

@@ -350,6 +350,31 @@ describe('a full stop at the end of the items', () => {
     expect(section('vitals hr 80 .').issues[0]?.message).toBe('A full stop at the end of the line is not part of any item; the line is read without it.');
   });
 
+  it('reads a time with a full stop glued to its end the same way; a label keeps its full stop', () => {
+    const timeOf = (text: string): TimepointLine => {
+      const node = parseNote(text).lines[0];
+      if (node?.kind !== 'timepoint') throw new Error(`not a timepoint: ${text}`);
+      return node;
+    };
+    const cases: [string, string, number | null, number | null][] = [
+      ['@ 08:00.', 'clock', null, 480],
+      ['@08:00.', 'clock', null, 480],
+      ['@ +2h.', 'offset', null, 120],
+      ['@ day 2.', 'day', 2, null],
+      ['@ day 2 08:00.', 'clock', 2, 480],
+    ];
+    for (const [text, kind, day, minutes] of cases) {
+      const node = timeOf(text);
+      expect([node.time?.kind, node.time?.day, node.time?.minutes, node.label], text).toEqual([kind, day, minutes, null]);
+      expect(node.issues.map((i) => [i.check, i.severity, i.span.start, i.span.end]), text).toEqual([['stray-text', 'information', text.length - 1, text.length]]);
+    }
+    expect(timeOf('@ 08:00.').issues[0]?.message).toBe('`08:00.` is read as `08:00`: a full stop at the end of the line is left out.');
+    const labelled = timeOf('@ 08:00 arrived.');
+    expect([labelled.time?.minutes, labelled.label?.text, labelled.issues]).toEqual([480, 'arrived.', []]);
+    // Not a time without the full stop either: still an unreadable time.
+    expect(timeOf('@ 25:00.').issues.map((i) => i.check)).toEqual(['bad-time']);
+  });
+
   it('never changes a number: a decimal point followed by digits is part of it', () => {
     expect(section('vitals temp 37.5').items[0]?.number).toBe(37.5);
     expect(section('vitals temp 37.5').issues).toEqual([]);
@@ -389,6 +414,16 @@ describe('commas that separate nothing', () => {
     expect(line(text).issues[0]?.message).toBe('A comma at the start of the line separates nothing; the line is read without it.');
     expect(line('vitals , hr 80').issues[0]?.message).toBe('A comma right after `vitals` separates nothing; the line is read without it.');
     expect(line(text).issues[0]?.fixes[0]?.edits).toEqual([{ span: { start: 0, end: 1 }, newText: '' }]);
+  });
+
+  it('reports commas after a section word with nothing after them (`patient ,`), which the formatter would otherwise drop', () => {
+    expect(reported('patient ,')).toEqual([['information', ',', ['Remove the comma']]]);
+    expect(reported('patient ,,')).toEqual([['information', ',,', ['Remove the commas']]]);
+    expect(reported('note ,')).toEqual([['information', ',', ['Remove the comma']]]);
+    expect(reported('vitals ,  # later')).toEqual([['information', ',', ['Remove the comma']]]);
+    expect(line('patient ,').issues[0]?.message).toBe('A comma right after `patient` separates nothing; the line is read without it.');
+    // A comma after the last item is a separator the grammar allows.
+    expect(reported('vitals hr 80,')).toEqual([]);
   });
 
   it('reports a second comma between two items (is a value missing?), and removes only the extra one', () => {

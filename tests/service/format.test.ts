@@ -67,7 +67,7 @@ describe('canonical layout', () => {
   });
 
   it('leaves a line with a full stop or a comma that separates nothing as it is (both are reported)', () => {
-    const untouched = ['vitals hr 80.', 'vitals hr 80, rr 18.', 'vitals  temp 38.4 C.  # ok', 'vent mode VC.', ', vitals hr 80', 'vitals , hr 80', 'vitals hr 80,, rr 18', ',@ 08:00', '@, 08:00', 'note, settled', ','];
+    const untouched = ['vitals hr 80.', 'vitals hr 80, rr 18.', 'vitals  temp 38.4 C.  # ok', 'vent mode VC.', ', vitals hr 80', 'vitals , hr 80', 'vitals hr 80,, rr 18', ',@ 08:00', '@, 08:00', 'note, settled', ',', 'patient ,', 'note ,', '@ 08:00.'];
     for (const line of untouched) expect(formatNote(line), line).toBe(line);
   });
 

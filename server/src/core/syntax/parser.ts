@@ -161,7 +161,7 @@ function parseLineUnsafe(text: string, line: number): LineNode {
     const prose: Token | null = proseStart === undefined ? null : new CutToken(body, proseStart, proseEnd(body));
     // Commas inside the prose are prose; one before it separates nothing.
     let noteIssues: readonly SyntaxIssue[] = NONE;
-    if (first.afterComma || chunks[1]?.afterComma) {
+    if (first.afterComma || chunks[1]?.afterComma || commaAfterLoneWord(body, chunks)) {
       const found: SyntaxIssue[] = [];
       strayCommas(body, chunks, true, false, found);
       noteIssues = found;
@@ -169,7 +169,7 @@ function parseLineUnsafe(text: string, line: number): LineNode {
     return { kind: 'section', line, text, comment, section: section.id, sectionToken, items: NONE, prose, issues: noteIssues };
   }
   const issues: SyntaxIssue[] = [];
-  if (first.afterComma || chunks[1]?.afterComma || doubledComma) strayCommas(body, chunks, true, doubledComma, issues);
+  if (first.afterComma || chunks[1]?.afterComma || doubledComma || commaAfterLoneWord(body, chunks)) strayCommas(body, chunks, true, doubledComma, issues);
   if (chunks.length > 1) {
     const last = chunks[chunks.length - 1]!;
     if (last.text.charCodeAt(last.text.length - 1) === 0x2e /* . */) leaveOutFullStop(chunks, issues);
@@ -215,6 +215,8 @@ function strayCommas(body: string, chunks: readonly Word[], afterFirst: boolean,
   const first = chunks[0]!;
   if (first.afterComma) issues.push(strayCommaIssue(body, 0, first.start, 'start'));
   if (afterFirst && chunks[1]?.afterComma) issues.push(strayCommaIssue(body, first.end, chunks[1].start, 'after-first', first.text));
+  // `patient ,`: commas after the section word and nothing else (no item for them to follow).
+  else if (afterFirst && commaAfterLoneWord(body, chunks)) issues.push(strayCommaIssue(body, first.end, body.length, 'after-first', first.text));
   if (!between) return;
   for (let k = 2; k <= chunks.length; k++) {
     const from = chunks[k - 1]!.end;
@@ -224,6 +226,11 @@ function strayCommas(body: string, chunks: readonly Word[], afterFirst: boolean,
     const second = body.indexOf(',', comma + 1);
     if (second >= 0 && second < to) issues.push(strayCommaIssue(body, second, to, 'doubled'));
   }
+}
+
+/** Whether the line's one word is followed by a comma (`patient ,`, `note,`): there is no item or prose for it to end. */
+function commaAfterLoneWord(body: string, chunks: readonly Word[]): boolean {
+  return chunks.length === 1 && body.indexOf(',', chunks[0]!.end) >= 0;
 }
 
 /**
@@ -288,6 +295,9 @@ function parseTimepoint(body: string, chunks: Word[], line: number, text: string
   if (first.text.length > 1) rest.push(new Word(first.text.slice(1), first.start + 1, first.end, false));
   for (let k = 1; k < chunks.length; k++) rest.push(chunks[k]!);
 
+  // `@ 08:00.`: a full stop glued to the end of the time, read as a line of items reads one.
+  if (timeEndsWithFullStop(rest)) leaveOutFullStop(rest, issues);
+
   let time: TimeSpec | null = null;
   let used = 0;
   const c0 = rest[0];
@@ -349,6 +359,26 @@ function parseTimepoint(body: string, chunks: Word[], line: number, text: string
   const labelEnd = l0 ? proseEnd(body) : 0;
   const label: Token | null = l0 ? token(body.slice(l0.start, labelEnd), l0.start, labelEnd) : null;
   return { kind: 'timepoint', line, text, comment, marker, time, label, issues: issues.length === 0 ? NONE : issues };
+}
+
+/**
+ * Whether the last word of a timepoint line is a part of its time with a full stop glued on
+ * (`@ 08:00.`, `@ +2h.`, `@ day 2.`, `@ day 2 08:00.`), and no label follows: a full stop in a
+ * label is prose and stays.
+ */
+function timeEndsWithFullStop(rest: readonly Word[]): boolean {
+  const last = rest[rest.length - 1];
+  if (!last || last.text.length < 2 || last.text.charCodeAt(last.text.length - 1) !== 0x2e /* . */ || rest.length > 3) return false;
+  const word = last.text.slice(0, -1);
+  const k = rest.length - 1;
+  if (rest[0]!.text.toLowerCase() === 'day') {
+    if (k === 1) {
+      const day = leadingNumber(word);
+      return day.length === word.length && Number.isInteger(day.value) && day.value >= 0;
+    }
+    return k === 2 && readClock(word) !== null;
+  }
+  return k === 0 && (readClock(word) !== null || (word.startsWith('+') && readOffset(word) !== null));
 }
 
 /**
