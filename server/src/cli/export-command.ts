@@ -9,6 +9,7 @@ import { csvCells, csvHeader } from '../core/export/csv';
 import { exportColumns, timepointCells } from '../core/export/columns';
 import { anchorProblem, toFhirBundle } from '../core/export/fhir';
 import { toJsonl } from '../core/export/jsonl';
+import { wordList } from '../core/util/format';
 import { EXIT, HELP, jobsOption, parse, UsageError, validate, wholeNumberOption, type Io } from './args';
 import { ConfigReport, reportConfigProblems } from './config-report';
 import { listInputs } from './inputs';
@@ -17,8 +18,11 @@ import { visible } from './visible';
 import { gather } from './pool';
 import { NoteWorker, written, type ExportRenderer, type FileReport } from './work';
 
+const EXPORT_FORMATS = ['csv', 'jsonl', 'fhir'] as const;
+
 const exportOptions = z.object({
-  format: z.enum(['csv', 'jsonl', 'fhir'], { error: (issue) => issue.input === undefined ? 'is required: csv, jsonl or fhir' : 'must be one of csv, jsonl or fhir' }),
+  // A value not among them gets `validate`'s wording; a missing one names them too.
+  format: z.enum(EXPORT_FORMATS, { error: (issue) => (issue.input === undefined ? `is required: ${wordList(EXPORT_FORMATS, 'or')}` : undefined) }),
   redact: z.boolean().default(false),
   shiftDays: wholeNumberOption(-100000, 100000, 'expected a whole number of days from -100000 to 100000', true).optional(),
   anchor: z.string().max(64, { message: 'is too long for a date-time' }).nullable().default(null).refine((a) => a === null || anchorProblem(a) === null, { message: 'not an ISO 8601 date-time with a zone, e.g. 2026-01-05T00:00:00Z' }),

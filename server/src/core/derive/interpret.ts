@@ -7,7 +7,7 @@
 import { BERLIN_BAND_SEVERITY, berlinOxygenationBand, type AcidBaseClassification, type AcidBaseDisorder } from '../physiology';
 import { forBand } from '../physiology/numeric';
 import type { Settings } from '../settings';
-import { formatAgainst, formatNumber, formatShort, rangeAgainst } from '../util/format';
+import { formatAgainst, formatNumber, formatShort, rangeAgainst, wordList } from '../util/format';
 import { KPA_DECIMALS, kpaFromMmhg, kpaNumber, showsKpa } from '../present';
 import { classification } from './acid-base';
 import { ALVEOLAR_ROUNDING_MMHG } from './gas-exchange';
@@ -190,7 +190,7 @@ function mechanism(c: DeriveContext, settings: Settings, line: number | null, ga
   const onOxygen = (c.fio2()?.value ?? 0.21) > 0.21 + 1e-9;
   const caveat = onOxygen ? ' On supplemental oxygen the normal gradient is wider than the air-based limit.' : '';
   if (causes.length === 0) return [{ topic: 'hypoxaemia-mechanism', text: `Hypoxaemia without a low PiO2, hypercapnia or a raised A–a gradient: recheck the inputs.${normalGradient}${caveat}`, basis, line, notable: true }];
-  const text = causes.length === 1 ? `Hypoxaemia consistent with ${causes[0]}.` : `Hypoxaemia consistent with a mix of ${causes.slice(0, -1).join(', ')} and ${causes[causes.length - 1]}.`;
+  const text = causes.length === 1 ? `Hypoxaemia consistent with ${causes[0]}.` : `Hypoxaemia consistent with a mix of ${wordList(causes)}.`;
   return [{ topic: 'hypoxaemia-mechanism', text: `${text}${normalGradient}${caveat}`, basis, line, notable: true }];
 }
 
