@@ -1,6 +1,6 @@
 /** A PaO2 above the alveolar PO2 that the stated FiO2 and pressure allow is impossible. */
 import { describeInputOrigin } from '../derive/context';
-import { ALVEOLAR_ROUNDING_MMHG } from '../derive/gas-exchange';
+import { ALVEOLAR_ROUNDING_MMHG, isAboveAlveolar } from '../derive/gas-exchange';
 import { derivedValueOf } from '../derive/registry';
 import { SOURCES } from '../physiology';
 import { gasPressureText, showsKpa } from '../present';
@@ -28,7 +28,7 @@ export const pao2AboveAlveolar = defineCheck({
       const alveolar = derivedValueOf(ctx.derivation, 'pao2_alveolar');
       const pao2 = tp.values.get('pao2');
       if (!alveolar || !pao2 || pao2.origin.kind !== 'here' || !pao2.stated.usable || pao2.stated.value === null) return;
-      if (pao2.stated.value <= alveolar.value + ALVEOLAR_ROUNDING_MMHG) return;
+      if (!isAboveAlveolar(pao2.stated.value, alveolar.value)) return;
       const fio2 = derivedValueOf(ctx.derivation, 'pio2')?.inputs.find((t) => t.name === 'FiO2');
       const related = fio2 && fio2.origin.kind !== 'default' && fio2.origin.kind !== 'derived'
         ? [{ range: toRange(fio2.origin.line, fio2.origin.span), message: `FiO2 ${formatNumber(fio2.value, 2)} in force (${describeInputOrigin(fio2.origin)})` }]

@@ -20,6 +20,11 @@ import { SEA_LEVEL_MMHG } from './atmosphere';
 /** PaO2 above alveolar PO2 by more than this (mmHg) is impossible rather than rounding. */
 export const ALVEOLAR_ROUNDING_MMHG = 5;
 
+/** Whether a PaO2 is above the alveolar PO2 by more than rounding: impossible (PN401), so nothing is read from it. */
+export function isAboveAlveolar(pao2Mmhg: number, alveolarMmhg: number): boolean {
+  return pao2Mmhg > alveolarMmhg + ALVEOLAR_ROUNDING_MMHG;
+}
+
 export const pao2Alveolar = defineDerived({
   id: 'pao2_alveolar',
   label: 'Alveolar PO2',
@@ -117,7 +122,7 @@ export const aToARatio = defineDerived({
     const pa = c.field('pao2', 'PaO2');
     const pA = c.derived('pao2_alveolar', 'PAO2');
     if (!pa || !pA) return c.missing([pa, 'po2'], [pA, c.lacking('pao2_alveolar')]);
-    if (pa.value > pA.value + ALVEOLAR_ROUNDING_MMHG) return { kind: 'na', reason: 'PaO2 is above the alveolar PO2 (see PN401)' };
+    if (isAboveAlveolar(pa.value, pA.value)) return { kind: 'na', reason: 'PaO2 is above the alveolar PO2 (see PN401)' };
     return c.value(arterialAlveolarRatio(pa.value, pA.value), [pa, pA]);
   },
 });

@@ -10,7 +10,7 @@ import type { Settings } from '../settings';
 import { formatAgainst, formatNumber, formatShort, rangeAgainst, wordList } from '../util/format';
 import { KPA_DECIMALS, kpaFromMmhg, kpaNumber, showsKpa } from '../present';
 import { classification } from './acid-base';
-import { ALVEOLAR_ROUNDING_MMHG } from './gas-exchange';
+import { isAboveAlveolar } from './gas-exchange';
 import type { DeriveContext } from './context';
 import type { Interpretation } from './model';
 
@@ -90,7 +90,7 @@ export function interpret(c: DeriveContext, settings: Settings): Interpretation[
   // A PaO2 above the alveolar PO2 the FiO2, pressure and PaCO2 allow (PN401): one of them is wrong,
   // so nothing is read from the PaO2 until the note is mended (as PN402 holds the acid–base reading).
   const alveolar = pao2 ? c.derivedValue('pao2_alveolar') : null;
-  const impossible = pao2 !== null && alveolar !== null && pao2.value > alveolar.value + ALVEOLAR_ROUNDING_MMHG;
+  const impossible = pao2 !== null && alveolar !== null && isAboveAlveolar(pao2.value, alveolar.value);
   const notRead = 'the FiO2, pressure, PaCO2 and PaO2 stated cannot go together (see PN401)';
 
   // Oxygenation
