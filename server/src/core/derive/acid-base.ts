@@ -11,7 +11,8 @@ import {
   hco3FromPhPco2,
   type AcidBaseClassification,
 } from '../physiology';
-import { defineDerived, type DeriveContext, type Term } from './context';
+import { defineDerived, type DeriveContext, type Outcome, type Term } from './context';
+import { formatNumber } from '../util/format';
 import type { Kept } from '../util/small-store';
 
 /** Serum bicarbonate when the laboratory gave one, else the gas analyser's. */
@@ -36,6 +37,16 @@ const CLASSIFICATION: Kept<AcidBaseClassification | null, DeriveContext> = {
     return classifyAcidBase({ ph: ph.value, paco2Mmhg: paco2.value, hco3MmolL: hco3.value, anionGapMmolL: gap?.value, gapHco3MmolL: gap ? bicarbonate(c)?.value : undefined });
   },
 };
+
+/**
+ * An expected compensation is worked out from the classification of the gas; when its pH, PaCO2
+ * and HCO3 do not fit together (PN402, and the acid–base reading is held back), it would rest on
+ * the same numbers, one of which is wrong: it is withheld with the reason.
+ */
+function withheldForInconsistentGas(cls: AcidBaseClassification): Outcome | null {
+  if (cls.consistency.consistent) return null;
+  return { kind: 'na', reason: `the pH, PaCO2 and HCO3 stated do not fit together (pH and PaCO2 give HCO3 ${formatNumber(cls.consistency.calculatedHco3MmolL, 1)} mmol/L; see PN402), so no compensation is worked out from them` };
+}
 
 export const hco3Calculated = defineDerived({
   id: 'hco3_calculated',
@@ -145,6 +156,8 @@ export const paco2Expected = defineDerived({
     const cls = classification(c);
     const hco3 = c.field('hco3', 'HCO3');
     if (!cls || !hco3) return c.missing([hco3, 'hco3']);
+    const withheld = withheldForInconsistentGas(cls);
+    if (withheld) return withheld;
     if (cls.primary === 'metabolic-acidosis') {
       const r = expectedPaco2MetabolicAcidosis(hco3.value);
       return r ? c.value(r.centre, [hco3], { range: r, notes: ["Winters' formula"] }) : c.value(null, []);
@@ -172,6 +185,8 @@ function respiratoryExpected(chronicity: 'acute' | 'chronic') {
       const cls = classification(c);
       const paco2 = c.field('paco2', 'PaCO2');
       if (!cls || !paco2) return c.missing([paco2, 'pco2']);
+      const withheld = withheldForInconsistentGas(cls);
+      if (withheld) return withheld;
       if (cls.primary !== 'respiratory-acidosis' && cls.primary !== 'respiratory-alkalosis') return { kind: 'na', reason: 'the primary disorder is not respiratory' };
       const r = expectedHco3Respiratory(paco2.value, chronicity);
       return r ? c.value((r.low + r.high) / 2, [paco2], { range: r, notes: ['span of published coefficients, ± 2 mmol/L'] }) : c.value(null, []);
