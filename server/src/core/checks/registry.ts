@@ -18,6 +18,7 @@ import { birthDate, calendarDate, emailAddress, phoneNumber, possibleName, posta
 import { timeGoesBack } from './time-order';
 import { rateBelowSet } from './rate-order';
 import { flowOnRoomAirCheck } from './room-air-flow';
+import { therapyOverlap } from './therapy-overlap';
 import { fio2OutOfRange, impossibleValue, saturationAbove100, unusualValue } from './value-bounds';
 
 export const CHECKS: readonly CheckDef[] = validateCheckList([
@@ -43,6 +44,7 @@ export const CHECKS: readonly CheckDef[] = validateCheckList([
   timeGoesBack,
   rateBelowSet,
   flowOnRoomAirCheck,
+  therapyOverlap,
   pao2AboveAlveolar,
   gasInconsistent,
   tidalVolumeHigh,
