@@ -2,7 +2,7 @@
 // regions are 1-based with UTF-16 columns; fixes and unreadable files are carried over.
 import { describe, expect, it } from 'vitest';
 import type * as Sarif from 'sarif';
-import { artifactUri, SARIF_SCHEMA, toSarifLog, type SarifFile } from '../../server/src/core/export';
+import { artifactLocationOf, artifactUri, SARIF_SCHEMA, SARIF_URI_BASE_ID, toSarifLog, type SarifFile } from '../../server/src/core/export';
 import { CHECKS } from '../../server/src/core/checks/registry';
 import { checked, samples, sarifSchema, sarifValidator } from './helpers';
 
@@ -87,7 +87,7 @@ describe('the log', () => {
       ruleId: 'PN405',
       level: 'warning',
       message: { text: 'Driving pressure is 19 cmH2O (plateau − PEEP), above 15 cmH2O.' },
-      locations: [{ physicalLocation: { artifactLocation: { uri: 'samples/icu-ventilated-lung-injury.pneu', index: 0 }, region: { startLine: 7, startColumn: 58 } } }],
+      locations: [{ physicalLocation: { artifactLocation: { uri: 'samples/icu-ventilated-lung-injury.pneu', uriBaseId: 'SRCROOT', index: 0 }, region: { startLine: 7, startColumn: 58 } } }],
     });
     for (const r of results) expect(run(log).tool.driver.rules?.[r.ruleIndex!]?.id).toBe(r.ruleId);
     expect(results.filter((r) => r.level === 'note')).toHaveLength(11);
@@ -103,6 +103,22 @@ describe('the log', () => {
     expect(sarif?.locations?.[0]?.physicalLocation?.region?.startColumn).toBe(16);
   });
 
+  it('counts a non-BMP character before a finding on the same line as two columns, as columnKind utf16CodeUnits declares', () => {
+    // `vitals 😀 rrr 5`: the emoji is one code point but two UTF-16 code units (U+1F600 is a
+    // surrogate pair), so `rrr` starts at UTF-16 column 11 (code point column 10, UTF-8 byte 14).
+    const line = 'vitals 😀 rrr 5';
+    const log = toSarifLog([{ path: 'a.pneu', result: checked(`@ day 1 08:00\n${line}`), problem: null }]);
+    expect(run(log).columnKind).toBe('utf16CodeUnits');
+    const results = run(log).results ?? [];
+    const regionOf = (code: string) => results.find((r) => r.ruleId === code)?.locations?.[0]?.physicalLocation?.region;
+    expect(regionOf('PN201')).toEqual({ startLine: 2, startColumn: 11, endLine: 2, endColumn: 14 });
+    expect(regionOf('PN105')).toEqual({ startLine: 2, startColumn: 8, endLine: 2, endColumn: 10 }); // the emoji itself: two units
+    // What the columns pick out of the line, read as UTF-16 code units, is the text each finding names.
+    const { startColumn = 0, endColumn = 0 } = regionOf('PN201') ?? {};
+    expect(line.slice(startColumn - 1, endColumn - 1)).toBe('rrr');
+    expect([...line].slice(startColumn - 1, endColumn - 1).join('')).not.toBe('rrr'); // code points would be off by one
+  });
+
   it('carries fixes as replacements', () => {
     const result = checked('@ day 1 08:00\nvitls hr 100\nabg ph 7,35');
     const results = run(toSarifLog([{ path: 'a.pneu', result, problem: null }])).results ?? [];
@@ -110,7 +126,7 @@ describe('the log', () => {
     expect(unknown.fixes?.[0]).toEqual({
       description: { text: 'Change to `vitals`' },
       artifactChanges: [{
-        artifactLocation: { uri: 'a.pneu', index: 0 },
+        artifactLocation: { uri: 'a.pneu', uriBaseId: SARIF_URI_BASE_ID, index: 0 },
         replacements: [{ deletedRegion: { startLine: 2, startColumn: 1, endLine: 2, endColumn: 6 }, insertedContent: { text: 'vitals' } }],
       }],
     });
@@ -134,9 +150,9 @@ describe('files', () => {
     const invocation = run(log).invocations?.[0];
     expect(invocation?.executionSuccessful).toBe(false);
     expect(invocation?.toolExecutionNotifications).toEqual([
-      { level: 'error', message: { text: 'b.pneu: cannot check: binary file' }, locations: [{ physicalLocation: { artifactLocation: { uri: 'b.pneu', index: 1 } } }] },
+      { level: 'error', message: { text: 'b.pneu: cannot check: binary file' }, locations: [{ physicalLocation: { artifactLocation: { uri: 'b.pneu', uriBaseId: 'SRCROOT', index: 1 } } }] },
     ]);
-    expect(run(log).artifacts).toEqual([{ location: { uri: 'a.pneu' } }, { location: { uri: 'b.pneu' } }]);
+    expect(run(log).artifacts).toEqual([{ location: { uri: 'a.pneu', uriBaseId: 'SRCROOT' } }, { location: { uri: 'b.pneu', uriBaseId: 'SRCROOT' } }]);
   });
 
   it('a run where every file was read is successful, with no notifications', () => {
@@ -150,7 +166,37 @@ describe('files', () => {
     ['samples\\sub\\a.pneu', 'samples/sub/a.pneu'],
     ['my notes/ü #1.pneu', 'my%20notes/%C3%BC%20%231.pneu'],
     ['-', '-'],
+    ['/home/someone/notes/a b.pneu', 'file:///home/someone/notes/a%20b.pneu'],
+    ['C:\\notes\\a.pneu', 'file:///C:/notes/a.pneu'],
+    ['\\\\server\\share\\a.pneu', 'file://server/share/a.pneu'],
+    ['a:b.pneu', 'a%3Ab.pneu'],
   ])('path %s → uri %s', (path, uri) => {
     expect(artifactUri(path)).toBe(uri);
+  });
+
+  it('relative URIs name their base (SRCROOT, declared on the run without a local address); absolute ones do not', () => {
+    const log = toSarifLog([
+      { path: 'notes/a.pneu', result: checked('@ day 1 08:00\nvitals hr 500'), problem: null },
+      { path: '/srv/notes/b.pneu', result: checked('@ day 1 08:00\nvitals hr 500'), problem: null },
+    ]);
+    const r = run(log);
+    expect(Object.keys(r.originalUriBaseIds ?? {})).toEqual([SARIF_URI_BASE_ID]);
+    expect(r.originalUriBaseIds?.[SARIF_URI_BASE_ID]?.uri).toBeUndefined();
+    expect(r.originalUriBaseIds?.[SARIF_URI_BASE_ID]?.description?.text).toMatch(/working folder/);
+    const locations = (r.results ?? []).map((x) => x.locations?.[0]?.physicalLocation?.artifactLocation);
+    expect(locations).toEqual([
+      { uri: 'notes/a.pneu', uriBaseId: 'SRCROOT', index: 0 },
+      { uri: 'file:///srv/notes/b.pneu', index: 1 },
+    ]);
+    for (const l of locations) if (l?.uriBaseId) expect(l.uri).not.toMatch(/^[a-z][a-z0-9+.-]*:/i); // relative under a base
+    expect(validate(log).errors).toEqual([]);
+  });
+
+  it('standard input has no URI (it is no file), only a description', () => {
+    expect(artifactLocationOf('<stdin>')).toEqual({ description: { text: 'standard input' } });
+    const log = toSarifLog([{ path: '<stdin>', result: checked('@ day 1 08:00\nvitals hr 500'), problem: null }]);
+    expect(run(log).artifacts).toEqual([{ location: { description: { text: 'standard input' } } }]);
+    expect(run(log).results?.[0]?.locations?.[0]?.physicalLocation?.artifactLocation).toEqual({ description: { text: 'standard input' }, index: 0 });
+    expect(validate(log).errors).toEqual([]);
   });
 });

@@ -5,8 +5,9 @@
  * - One run; `tool.driver` is `pneumark` with one rule per check of CHECKS, in registry order:
  *   id = code (`PN101`), name = alias, shortDescription = title, fullDescription = what fires it,
  *   help = how to fix it and the source, defaultConfiguration.level from the default severity,
- *   properties.tags = the check's tags. No URIs are written for the rules: the documentation is
- *   `docs/checks.md` in the repository, which has no fixed absolute address.
+ *   properties.tags = the check's tags. No `helpUri` is written: SARIF wants an absolute URI there,
+ *   and the documentation (`docs/checks.md`) has no fixed published address; a `file:` URI of one
+ *   machine's copy would be wrong on every other machine that opens the log.
  * - Levels: error → error, warning → warning, information and hint → note.
  * - Each finding is a result with ruleId and ruleIndex, its message, one physical location and,
  *   when the finding points elsewhere too, relatedLocations. Regions are 1-based lines and
@@ -15,7 +16,11 @@
  * - A finding's fixes become `fixes`, each one artifact change whose replacements delete the
  *   edit's region and insert its text.
  * - Paths: backslashes become `/`, a leading `./` is dropped, and each segment is
- *   percent-encoded as a URI reference requires (`my notes/a.pneu` → `my%20notes/a.pneu`).
+ *   percent-encoded as a URI reference requires (`my notes/a.pneu` → `my%20notes/a.pneu`). A
+ *   relative path (the CLI gives paths relative to the working folder) is a relative URI with
+ *   `uriBaseId: "SRCROOT"`, declared in the run's `originalUriBaseIds` without an absolute address
+ *   (that would put a local folder name into a shared log); an absolute path is an absolute
+ *   `file:` URI without a base; standard input (`<stdin>`) has no URI, only a description.
  *   Every file given, read or not, is listed once in `artifacts`; locations name its index.
  * - A note that could not be read becomes a tool execution notification (level error) on the
  *   invocation, and `executionSuccessful` is false when there is any: the run did not check
@@ -53,14 +58,43 @@ const LEVEL: Readonly<Record<Severity, Sarif.Result.level>> = {
   hint: 'note',
 };
 
-/** A path as a relative URI reference: forward slashes, each segment percent-encoded. */
+/**
+ * The base of the relative URIs in the log: the folder the paths are relative to (for the CLI, the
+ * working folder). Its absolute address is left out on purpose (it would put a local folder name,
+ * often a user name, into a log that is shared); a viewer asks for it or assumes the checkout.
+ */
+export const SARIF_URI_BASE_ID = 'SRCROOT';
+
+/** How the CLI names standard input (`check -`). */
+const STDIN_PATH = '<stdin>';
+
+const encodeSegments = (path: string): string => path.split('/').map((segment) => encodeURIComponent(segment)).join('/');
+
+/**
+ * A path as a URI: a relative path as a relative reference (forward slashes, each segment
+ * percent-encoded, a leading `./` dropped); an absolute path (`/notes/a.pneu`, `C:\notes\a.pneu`,
+ * `\\server\share\a.pneu`) as an absolute `file:` URI.
+ */
 export function artifactUri(path: string): string {
-  return path
-    .replace(/\\/g, '/')
-    .replace(/^(\.\/)+/, '')
-    .split('/')
-    .map((segment) => encodeURIComponent(segment))
-    .join('/');
+  const slashed = path.replace(/\\/g, '/');
+  if (/^\/\/[^/]/.test(slashed)) {
+    const [host = '', ...rest] = slashed.slice(2).split('/');
+    return `file://${encodeURIComponent(host)}/${encodeSegments(rest.join('/'))}`;
+  }
+  const drive = /^([A-Za-z]):\//.exec(slashed);
+  if (drive) return `file:///${drive[1]}:/${encodeSegments(slashed.slice(3))}`;
+  if (slashed.startsWith('/')) return `file://${encodeSegments(slashed)}`;
+  return encodeSegments(slashed.replace(/^(\.\/)+/, ''));
+}
+
+/**
+ * Where a path is, as SARIF says it: a relative URI with `uriBaseId` (resolved against
+ * `SRCROOT`), an absolute `file:` URI alone, or for standard input no URI at all (a description).
+ */
+export function artifactLocationOf(path: string): Sarif.ArtifactLocation {
+  if (path === STDIN_PATH) return { description: { text: 'standard input' } };
+  const uri = artifactUri(path);
+  return uri.startsWith('file:') ? { uri } : { uri, uriBaseId: SARIF_URI_BASE_ID };
 }
 
 function rule(check: CheckDef): Sarif.ReportingDescriptor {
@@ -130,14 +164,15 @@ export function sarifLogParts(files: readonly SarifFile[], options?: SarifOption
   const artifacts: Sarif.Artifact[] = [];
   const artifactIndex = new Map<string, number>();
   const locationOf = (path: string): Sarif.ArtifactLocation => {
-    const uri = artifactUri(path);
-    let index = artifactIndex.get(uri);
+    const location = artifactLocationOf(path);
+    const key = location.uri ?? path;
+    let index = artifactIndex.get(key);
     if (index === undefined) {
       index = artifacts.length;
-      artifactIndex.set(uri, index);
-      artifacts.push({ location: { uri } });
+      artifactIndex.set(key, index);
+      artifacts.push({ location });
     }
-    return { uri, index };
+    return { ...location, index };
   };
 
   const notifications: Sarif.Notification[] = [];
@@ -165,6 +200,7 @@ export function sarifLogParts(files: readonly SarifFile[], options?: SarifOption
         },
       },
       invocations: [invocation],
+      originalUriBaseIds: { [SARIF_URI_BASE_ID]: { description: { text: 'The folder the paths of the notes are relative to: the working folder of the command.' } } },
       ...(artifacts.length ? { artifacts } : {}),
       columnKind: 'utf16CodeUnits',
       results: [],
