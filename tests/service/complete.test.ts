@@ -3,7 +3,7 @@
 import { describe, expect, it } from 'vitest';
 import { checkNote } from '../../server/src/core/check-note';
 import { SECTIONS } from '../../server/src/core/fields/sections';
-import { completionsAt, type CompletionInfo } from '../../server/src/core/service';
+import { applyEdits, completionsAt, type CompletionInfo } from '../../server/src/core/service';
 import { noteAt } from './cursor';
 
 function complete(marked: string): CompletionInfo[] {
@@ -132,6 +132,17 @@ describe('units', () => {
     expect(items[0]?.replace).toEqual({ start: { line: 0, character: 10 }, end: { line: 0, character: 11 } });
   });
 
+  it('offers no unit after a FiO2 written as a fraction (`0.4 %` would read as 0.4 %), only the next keys', () => {
+    expect(labels('vent fio2 0.4 |')).not.toContain('%');
+    expect(labels('vent fio2 0.4 |')).toContain('peep');
+    expect(labels('abg fio2 1 |')).not.toContain('%');
+    expect(labels('oxygen venturi, fio2 .28 |')).toEqual(['flow', 'ipap', 'epap', 'level']);
+    expect(labels('vent fio2 0.4%|')).toEqual([]);
+    // A percentage still gets its unit.
+    expect(labels('vent fio2 40 |')).toEqual(['%']);
+    expect(labels('vent fio2 40%|')).toEqual(['%']);
+  });
+
   it('falls back to keys when the typed word is not a unit', () => {
     expect(labels('vitals hr 80 rr|')).toEqual(['rr']);
   });
@@ -148,6 +159,40 @@ describe('in the middle of a word', () => {
     expect(complete('abg po2 71k|p, pco2 40')[0]).toMatchObject({ label: 'kPa', replace: { start: { line: 0, character: 10 }, end: { line: 0, character: 12 } } });
     // The word ends at a comment.
     expect(complete('vitals hr 80, r|x# note')[0]?.replace?.end.character).toBe(16);
+  });
+});
+
+describe('right before a word', () => {
+  it('replaces the word after the cursor only with the same kind of thing', () => {
+    expect(complete('vent mode |VC')[0]).toMatchObject({ label: 'VC', insertText: 'VC', replace: { start: { line: 0, character: 10 }, end: { line: 0, character: 12 } } });
+    expect(complete('abg po2 71 |mmHg').find((c) => c.label === 'kPa')?.replace).toEqual({ start: { line: 0, character: 11 }, end: { line: 0, character: 15 } });
+    expect(complete('vitals hr 80, |rr 18').find((c) => c.label === 'spo2')?.replace).toEqual({ start: { line: 0, character: 14 }, end: { line: 0, character: 16 } });
+  });
+
+  it('inserts anything else before the word, with a blank, so the word stays', () => {
+    const { text, result, position } = noteAt('@ 08:00\nvitals hr 80 |rr 18');
+    const unit = completionsAt(result, position).find((c) => c.label === '/min');
+    expect(unit).toMatchObject({ insertText: '/min ', replace: { start: { line: 1, character: 13 }, end: { line: 1, character: 13 } } });
+    expect(applyEdits(text, [{ range: unit!.replace!, newText: unit!.insertText }])).toBe('@ 08:00\nvitals hr 80 /min rr 18');
+    const kpa = complete('abg po2 71 |pco2 40').find((c) => c.label === 'kPa');
+    expect(kpa).toMatchObject({ insertText: 'kPa ', replace: { start: { line: 0, character: 11 }, end: { line: 0, character: 11 } } });
+  });
+});
+
+describe('while a value of several parts is typed', () => {
+  it('offers nothing after the slash of a pair or a spaced shorthand gas: a number comes next', () => {
+    expect(complete('abg 7.3 / 56 / |')).toEqual([]);
+    expect(complete('vitals bp 120 / |')).toEqual([]);
+    expect(labels('abg 7.3 / 56 / 71 / 26 |')).toEqual(['mmHg', 'kPa']);
+  });
+
+  it('completes a device of two words from its first word on', () => {
+    for (const marked of ['oxygen room |', 'oxygen room a|', 'oxygen ROOM  A|']) {
+      const items = complete(marked);
+      expect(items.map((c) => c.label), marked).toEqual(['room air']);
+      expect(items[0]?.replace, marked).toEqual({ start: { line: 0, character: 7 }, end: { line: 0, character: marked.length - 1 } });
+    }
+    expect(labels('oxygen room air |')).toContain('fio2');
   });
 });
 

@@ -16,10 +16,10 @@ import { fieldFor, fieldsInSection, type FieldDef } from '../fields/registry';
 import { SECTIONS, sectionByName, type SectionDef, type SectionId } from '../fields/sections';
 import { chunkLine, isBlank, leadingNumber } from '../syntax/lexer';
 import { parseLine } from '../syntax/parser';
-import type { ItemNode } from '../syntax/tree';
+import type { ItemNode, LineNode } from '../syntax/tree';
 import type { Position, Range } from '../types';
 import { ITEM_COLUMN } from './format';
-import { isValidPosition, lineAt, lineRange } from './locate';
+import { isValidPosition, itemAt, lineAt, lineRange } from './locate';
 import type { CompletionInfo } from './types';
 
 const KIND_DETAIL: Readonly<Record<SectionDef['kind'], string>> = {
@@ -32,10 +32,13 @@ const KIND_DETAIL: Readonly<Record<SectionDef['kind'], string>> = {
 export function completionsAt(result: NoteResult, position: Position): CompletionInfo[] {
   if (!isValidPosition(position)) return [];
   const node = lineAt(result, position.line);
-  if (!node) return [];
+  if (!node || position.character > node.text.length) return [];
+  return keepNextWord(node, position.character, completionsOnLine(node, position));
+}
+
+function completionsOnLine(node: LineNode, position: Position): CompletionInfo[] {
   const text = node.text;
   const ch = position.character;
-  if (ch > text.length) return [];
   const hash = text.indexOf('#');
   if (hash >= 0 && ch > hash) return [];
   const line = position.line;
@@ -84,6 +87,13 @@ export function completionsAt(result: NoteResult, position: Position): Completio
     return narrow([...keyCompletions(section.id, used, replace), ...shorthand], typed);
   }
   if (afterComma) return afterNumber ? [] : keys();
+  // A pair or a spaced shorthand gas being typed (`bp 120 / |`, `abg 7.3 / 56 / |`): numbers come next.
+  if (last.text.endsWith('/')) return [];
+  if (section.id === 'oxygen' && !afterNumber) {
+    // A device of two words being typed (`oxygen room a|`): the lead so far, from the first word after the section.
+    const devices = leadDeviceCompletions(text, chunks[1]!.span.start, ch, lineRange(line, chunks[1]!.span.start, wordEnd));
+    if (devices) return devices;
+  }
 
   const prefix = parseLine(before, line);
   const items = prefix.kind === 'section' ? prefix.items : [];
@@ -94,7 +104,7 @@ export function completionsAt(result: NoteResult, position: Position): Completio
 
   if (afterNumber) {
     // `key 71mm|`: the number belongs to the last key, which has no value yet.
-    if (item.key && !item.value && field && field.kind !== 'word') return narrow(unitCompletions(field, unitRange), unitTyped);
+    if (item.key && !item.value && field && field.kind !== 'word' && !isFraction(field, number.value)) return narrow(unitCompletions(field, unitRange), unitTyped);
     return [];
   }
   if (!item.value) {
@@ -102,12 +112,63 @@ export function completionsAt(result: NoteResult, position: Position): Completio
     if (field.kind === 'word') return narrow(wordCompletions(field, replace), typed);
     return [];
   }
-  if (item.unit === null && item.value.kind !== 'word') {
+  if (item.unit === null && item.value.kind !== 'word' && !(field && item.number !== null && isFraction(field, item.number))) {
     const unitField = item.implied === 'shorthand' ? shorthandUnitField(section.id, items) : field;
     const units = unitField ? narrow(unitCompletions(unitField, replace), typed) : [];
     if (units.length > 0) return units;
   }
   return keys();
+}
+
+/**
+ * Whether a bare number of a field read as a fraction or a percentage (FiO2) is a fraction: up to
+ * 1 it is (`fio2 0.4`), and no unit can follow it (`0.4 %` is 0.4 %, below room air).
+ */
+function isFraction(field: FieldDef, value: number): boolean {
+  return field.bare === 'fraction-or-percent' && value <= 1;
+}
+
+type Role = 'section' | 'key' | 'unit' | 'word' | 'number';
+
+const ROLE_OF_KIND: Readonly<Record<CompletionInfo['kind'], Role | null>> = { section: 'section', key: 'key', unit: 'unit', word: 'word', snippet: null };
+
+/** What the word starting at `ch` is on its line: a section word, a key, a unit, a word value or a number. */
+function roleAt(node: LineNode, ch: number): Role | null {
+  if (node.kind !== 'section') return null;
+  if (node.sectionToken.span.start === ch) return 'section';
+  const hit = itemAt(node, ch);
+  if (!hit || hit.span.start !== ch) return null;
+  if (hit.part === 'value') return hit.item.valueKind === 'word' ? 'word' : 'number';
+  return hit.part;
+}
+
+/**
+ * With nothing typed before the cursor and a word right after it (`hr 80 |rr 18`), a completion
+ * replaces that word only when it is the same kind of thing (a key for a key, a unit for a unit,
+ * a mode for a mode); anything else is inserted before the word with a blank after it, so that
+ * the word stays (`hr 80 /min rr 18`, never `hr 80 /min 18`).
+ */
+function keepNextWord(node: LineNode, ch: number, items: CompletionInfo[]): CompletionInfo[] {
+  let role: Role | null | undefined;
+  return items.map((c) => {
+    const r = c.replace;
+    if (!r || r.start.character !== ch || r.end.character <= ch) return c;
+    role ??= roleAt(node, ch);
+    if (role !== null && ROLE_OF_KIND[c.kind] === role) return c;
+    return { ...c, insertText: `${c.insertText} `, replace: lineRange(r.start.line, ch, ch) };
+  });
+}
+
+/**
+ * Devices of more than one word (`room air`) while they are typed: `oxygen room a|` offers
+ * `room air` in place of `room a`. Null when the text from the first word to the cursor is not
+ * the start of such a device.
+ */
+function leadDeviceCompletions(text: string, leadStart: number, ch: number, replace: Range): CompletionInfo[] | null {
+  const lead = text.slice(leadStart, ch).replace(/\s+/g, ' ').toLowerCase();
+  if (!lead.includes(' ') || lead.includes(',')) return null;
+  const found = wordCompletions(fieldFor('oxygen', 'device'), replace).filter((c) => c.label.includes(' ') && c.label.toLowerCase().startsWith(lead));
+  return found.length > 0 ? found : null;
 }
 
 // ── what is offered ─────────────────────────────────────────────────────
