@@ -61,9 +61,7 @@ describe('the column list', () => {
     for (const c of exportColumns()) {
       expect(c.description.length, c.name).toBeGreaterThan(10);
       if (c.type === 'number' && c.kind !== 'summary' && c.name !== 'timepoint' && c.name !== 'day') expect(c.ucum, c.name).not.toBeNull();
-      if (c.ucum !== null && !c.ucum.startsWith('[pH]')) {
-        expect(ucum.convertUnitTo(c.ucum, 1, c.ucum).status, `${c.name}: ${c.ucum}`).toBe('succeeded');
-      }
+      if (c.ucum !== null) expect(ucum.validateUnitString(c.ucum, true).status, `${c.name}: ${c.ucum}`).toBe('valid');
     }
   });
 });

@@ -2,7 +2,9 @@
 // values only, LOINC and UCUM codes from the registries, times from an anchor.
 import { UcumLhcUtils } from '@lhncbc/ucum-lhc';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { anchorProblem, observationCategory, toFhirBundle, type FhirBundle, type FhirObservation, type FhirOptions } from '../../server/src/core/export';
+import { anchorProblem, observationCategory, toFhirBundle, ucumCode, type FhirBundle, type FhirObservation, type FhirOptions } from '../../server/src/core/export';
+import { fhirLoinc, isObservedField, loincMismatch } from '../../server/src/core/export/fhir';
+import type { SectionId } from '../../server/src/core/fields/sections';
 import { FIELDS } from '../../server/src/core/fields/registry';
 import { checked, fhirValidator, samples } from './helpers';
 
@@ -43,8 +45,8 @@ describe('schema', () => {
     expect(validator.validate(broken, true)).not.toEqual([]);
   });
 
-  it('a note with nothing coded gives an empty collection without an entry array', () => {
-    const bundle = toFhirBundle('a.pneu', checked('@ day 1 08:00\nvent rate 14'), noAnchor);
+  it('a note with nothing exported gives an empty collection without an entry array', () => {
+    const bundle = toFhirBundle('a.pneu', checked('@ day 1 08:00\nvent mode VC\noxygen room air\nnote calm'), noAnchor);
     expect(bundle.entry).toBeUndefined();
     expect(validator.validate(bundle, true)).toEqual([]);
   });
@@ -57,7 +59,7 @@ describe('observations', () => {
   it('one per value stated at a timepoint, never for carried values', () => {
     // Timepoint 1 restates PEEP and FiO2; mode, VT, rate and flow are carried and not repeated.
     const ids = observations(bundle).map((o) => o.id).filter((id) => id.startsWith('obs-1-'));
-    expect(ids).toEqual(['obs-1-fio2', 'obs-1-peep', 'obs-1-ph', 'obs-1-paco2', 'obs-1-pao2', 'obs-1-hco3', 'obs-1-sao2', 'obs-1-pf-ratio']);
+    expect(ids).toEqual(['obs-1-fio2', 'obs-1-peep', 'obs-1-plateau', 'obs-1-peak', 'obs-1-mean-airway-pressure', 'obs-1-ph', 'obs-1-paco2', 'obs-1-pao2', 'obs-1-hco3', 'obs-1-sao2', 'obs-1-pf-ratio']);
   });
 
   it('header values once, without a time', () => {
@@ -87,13 +89,13 @@ describe('observations', () => {
   it('blood pressure: one Observation, panel code, two components in mmHg', () => {
     const bp = byId(bundle, 'obs-0-bp')!;
     expect(bp.valueQuantity).toBeUndefined();
-    expect(bp.code.coding[0]?.code).toBe('85354-9');
-    expect(bp.component?.map((c) => [c.code.coding[0]?.code, c.valueQuantity.value, c.valueQuantity.code])).toEqual([['8480-6', 104, 'mm[Hg]'], ['8462-4', 62, 'mm[Hg]']]);
+    expect(bp.code.coding?.[0]?.code).toBe('85354-9');
+    expect(bp.component?.map((c) => [c.code.coding?.[0]?.code, c.valueQuantity.value, c.valueQuantity.code])).toEqual([['8480-6', 104, 'mm[Hg]'], ['8462-4', 62, 'mm[Hg]']]);
   });
 
   it('P/F ratio with its LOINC code, in mmHg, derived from the PaO2 and FiO2 Observations', () => {
     const pf = byId(bundle, 'obs-2-pf-ratio')!;
-    expect(pf.code.coding[0]?.code).toBe('50984-4');
+    expect(pf.code.coding?.[0]?.code).toBe('50984-4');
     expect(pf.valueQuantity?.value).toBeCloseTo(82 / 0.6, 9);
     expect(pf.valueQuantity?.code).toBe('mm[Hg]');
     // Timepoint 2 uses the FiO2 carried from timepoint 1: the reference points there.
@@ -102,7 +104,7 @@ describe('observations', () => {
   });
 
   it('no other derived value, no subject, no identifier', () => {
-    const codes = new Set(observations(bundle).map((o) => o.code.coding[0]?.code));
+    const codes = new Set(observations(bundle).map((o) => o.code.coding?.[0]?.code).filter((c) => c !== undefined));
     const registry = new Set(FIELDS.flatMap((f) => [...(f.loinc ? [f.loinc.code] : []), ...Object.values(f.loincBySection ?? {}).map((l) => l.code)]));
     for (const code of codes) expect(registry.has(code!) || code === '50984-4', code).toBe(true);
     for (const o of observations(bundle)) {
@@ -120,18 +122,98 @@ describe('observations', () => {
     expect(ids).toContain('obs-5-spo2');
   });
 
-  it('every UCUM code is one a UCUM library reads', () => {
+  it('every UCUM code is one a UCUM library reads, [pH] included, and names the unit the value is in', () => {
     const ucum = UcumLhcUtils.getInstance();
     const codes = new Set(samples().flatMap((s) => observations(toFhirBundle(s.path, s.result, noAnchor)).flatMap((o) => [o.valueQuantity?.code, ...(o.component ?? []).map((c) => c.valueQuantity.code)])));
-    for (const code of codes) if (code && code !== '[pH]') expect(ucum.convertUnitTo(code, 1, code).status, code).toBe('succeeded');
+    expect(codes).toContain('[pH]');
+    for (const code of codes) if (code) expect(ucum.validateUnitString(code, true).status, code).toBe('valid');
+    // Every unit a field can be exported in (its canonical unit), not only those the samples use.
+    for (const f of FIELDS) {
+      if (!isObservedField(f)) continue;
+      const code = ucumCode(f.unit ?? '');
+      expect(code, f.id).not.toBeNull();
+      expect(ucum.validateUnitString(code!, true).status, `${f.id}: ${code}`).toBe('valid');
+    }
+  });
+});
+
+describe('codes that fit the value', () => {
+  const codeOf = (b: FhirBundle, id: string) => byId(b, id)?.code;
+
+  it('glucose in mmol/L never carries the registry\'s [Mass/volume] code (2345-7); it is exported with its label alone', () => {
+    const b = toFhirBundle('a.pneu', checked('@ day 1 08:00\nlabs glucose 5.5'), noAnchor);
+    const glucose = byId(b, 'obs-0-glucose')!;
+    expect(glucose.code).toEqual({ text: 'Glucose' });
+    expect(glucose.valueQuantity).toEqual({ value: 5.5, unit: 'mmol/L', system: 'http://unitsofmeasure.org', code: 'mmol/L' });
+    expect(validator.validate(b, true)).toEqual([]);
+  });
+
+  it('a venous base excess is not coded as arterial, an electrolyte from a blood gas not as serum or plasma', () => {
+    const b = toFhirBundle('a.pneu', checked('@ day 1 08:00\nvbg 7.30/50/40/24, be -4, na 135, k 4.4\n@ +1h\nabg 7.35/40/90/22, be -2, cl 101\nlabs na 140, k 4.1'), noAnchor);
+    expect(codeOf(b, 'obs-0-base-excess')).toEqual({ text: 'Base excess' });
+    expect(codeOf(b, 'obs-1-base-excess')?.coding?.map((c) => c.code)).toEqual(['1925-7']); // arterial, on an abg line
+    expect(codeOf(b, 'obs-0-na')).toEqual({ text: 'Sodium' });
+    expect(codeOf(b, 'obs-0-k')).toEqual({ text: 'Potassium' });
+    expect(codeOf(b, 'obs-1-cl')).toEqual({ text: 'Chloride' });
+    expect(codeOf(b, 'obs-1-na')?.coding?.map((c) => c.code)).toEqual(['2951-2']); // labs: serum or plasma
+    expect(codeOf(b, 'obs-1-k')?.coding?.map((c) => c.code)).toEqual(['2823-3']);
+    expect(codeOf(b, 'obs-0-pvco2')?.coding?.map((c) => c.code)).toEqual(['2021-4']);
+    expect(validator.validate(b, true)).toEqual([]);
+  });
+
+  it('the registry codes left out, by field and section, are exactly these (a change shows in review)', () => {
+    const dropped: string[] = [];
+    for (const f of FIELDS) {
+      for (const section of f.sections as readonly SectionId[]) {
+        const registry = f.loincBySection?.[section] ?? f.loinc;
+        if (registry && fhirLoinc(f, section) === null) dropped.push(`${f.id}@${section}: ${loincMismatch(registry, f, section)}`);
+      }
+    }
+    expect(dropped).toEqual([
+      'base_excess@vbg: 1925-7 is for arterial blood, the value is from a venous gas',
+      'na@abg: 2951-2 is for serum or plasma, the value is from a blood gas (whole blood)',
+      'na@vbg: 2951-2 is for serum or plasma, the value is from a blood gas (whole blood)',
+      'k@abg: 2823-3 is for serum or plasma, the value is from a blood gas (whole blood)',
+      'k@vbg: 2823-3 is for serum or plasma, the value is from a blood gas (whole blood)',
+      'cl@abg: 2075-0 is for serum or plasma, the value is from a blood gas (whole blood)',
+      'cl@vbg: 2075-0 is for serum or plasma, the value is from a blood gas (whole blood)',
+      'glucose@labs: 2345-7 is a mass concentration, the value is not',
+      'glucose@abg: 2345-7 is a mass concentration, the value is not',
+      'glucose@vbg: 2345-7 is a mass concentration, the value is not',
+    ]);
+  });
+
+  it('every code that is kept names a property that agrees with the unit of the value', () => {
+    for (const f of FIELDS) {
+      for (const section of f.sections as readonly SectionId[]) {
+        const loinc = fhirLoinc(f, section);
+        if (!loinc) continue;
+        if (loinc.display.includes('[Moles/volume]')) expect(f.unit, f.id).toBe('mmol/L');
+        if (loinc.display.includes('[Mass/volume]')) expect(f.unit, f.id).toBe('g/dL');
+        if (loinc.display.includes('[Partial pressure]')) expect(f.unit, f.id).toBe('mmHg');
+      }
+    }
+  });
+
+  it('values with no code of their own are exported with their label alone; words and the place are not exported', () => {
+    const b = toFhirBundle('a.pneu', checked('place altitude 2000 m\n@ day 1 08:00\nvent mode VC, vt 450, rate 14, peep 5, fio2 0.4, plateau 20\nvitals etco2 35\n@ +1h\noxygen room air'), noAnchor);
+    expect(codeOf(b, 'obs-0-vent-rate')).toEqual({ text: 'Set rate' });
+    expect(codeOf(b, 'obs-0-plateau')).toEqual({ text: 'Plateau pressure' });
+    expect(byId(b, 'obs-0-plateau')?.category).toBeUndefined(); // read off the ventilator: not a setting
+    expect(byId(b, 'obs-0-vent-rate')?.category?.[0]?.coding?.[0]?.code).toBe('therapy');
+    expect(byId(b, 'obs-0-etco2')?.valueQuantity).toEqual({ value: 35, unit: 'mmHg', system: 'http://unitsofmeasure.org', code: 'mm[Hg]' });
+    const ids = observations(b).map((o) => o.id);
+    for (const id of ['obs-0-mode', 'obs-1-device', 'obs-header-altitude', 'obs-header-barometric', 'obs-0-barometric']) expect(ids).not.toContain(id);
+    expect(FIELDS.filter((f) => !isObservedField(f)).map((f) => f.id)).toEqual(['sex', 'altitude', 'barometric', 'gas_unit', 'device', 'mode']);
+    expect(validator.validate(b, true)).toEqual([]);
   });
 });
 
 describe('LOINC codes by section', () => {
   it('codes a ventilator FiO2 as the ventilator setting (19994-3) and an oxygen-line FiO2 as inhaled oxygen (3150-0) — LOINC (from memory)', () => {
     const b = toFhirBundle('a.pneu', checked('@ 08:00\nvent mode VC, vt 420, rate 16, peep 8, fio2 0.5\n@ 09:00\noxygen venturi, fio2 0.28'), noAnchor);
-    expect(byId(b, 'obs-0-fio2')?.code.coding[0]?.code).toBe('19994-3');
-    expect(byId(b, 'obs-1-fio2')?.code.coding[0]?.code).toBe('3150-0');
+    expect(byId(b, 'obs-0-fio2')?.code.coding?.[0]?.code).toBe('19994-3');
+    expect(byId(b, 'obs-1-fio2')?.code.coding?.[0]?.code).toBe('3150-0');
     expect(validator.validate(b, true)).toEqual([]);
   });
 });

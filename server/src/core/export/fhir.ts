@@ -1,32 +1,50 @@
 /**
- * FHIR R4 export: one `Bundle` of type `collection` per note, holding one `Observation` per value
- * the note states that has a LOINC code in the field registry.
+ * FHIR R4 export: one `Bundle` of type `collection` per note, holding one `Observation` per number
+ * the note states about the patient and the treatment.
  *
  * What becomes an Observation:
- * - each value stated at a timepoint (`here`; carried values are not repeated: the Observation of
- *   the timepoint that stated them stands), usable, with a LOINC code;
- * - each header value (patient line before the first timepoint) with a LOINC code, once per note
- *   and without a time: age, height, weight describe the patient for the whole note;
+ * - each usable number (or pair) stated at a timepoint (`here`; carried values are not repeated:
+ *   the Observation of the timepoint that stated them stands), from the sections patient, vitals,
+ *   oxygen, vent, abg, vbg and labs. Words (sex, oxygen device, ventilator mode, gas unit) and the
+ *   place (altitude, barometric pressure: the surroundings, not the patient) are not exported;
+ *   CSV and JSON Lines have them;
+ * - each header value (patient line before the first timepoint), once per note and without a
+ *   time: age, height, weight describe the patient for the whole note;
  * - of the derived values, only those LOINC has a code for: the P/F ratio (Horowitz index,
  *   50984-4, value in mmHg), with `derivedFrom` pointing at the PaO2 and FiO2 Observations it
  *   used (at this timepoint or, for a carried FiO2, the one that stated it);
  * - blood pressure as one Observation with the panel code of the registry and two components.
  *
- * Every Observation has `status: final`, `code` (LOINC coding and our label as text) and a
- * `valueQuantity` in the field's canonical unit, full precision, with the UCUM code of the unit
- * registry. There is no subject, performer or identifier: notes carry none.
+ * Codes: `code.text` is always our label; `code.coding` holds the field's LOINC code from the
+ * registry (per section where it has one: a ventilator's FiO2 is a setting) only when what the
+ * code's name says agrees with the value (`fhirLoinc`): a `[Mass/volume]` code is never put on a
+ * value in mmol/L (nor `[Moles/volume]` on one in g/dL), an arterial-blood code never on a value
+ * from a `vbg` line nor a venous one on an `abg` line, and a serum-or-plasma code never on a value
+ * from a blood gas (`abg`, `vbg`), which is measured in whole blood. A value whose field has no
+ * code, or whose code does not fit, is still exported, with `code.text` alone and no coding: a
+ * wrong code is worse than none. A code marked `fromMemory` in the registry was recalled, not read
+ * from the LOINC table.
+ *
+ * Every Observation has `status: final` and a `valueQuantity` in the field's canonical unit
+ * (gases in mmHg, whatever the note wrote), full precision, with the UCUM code of the unit
+ * registry (`system` http://unitsofmeasure.org). There is no subject, performer or identifier:
+ * notes carry none.
  *
  * Categories (http://terminology.hl7.org/CodeSystem/observation-category), by the field's first
  * section: vitals → vital-signs; abg, vbg and labs → laboratory (and the P/F ratio, a blood-gas
- * index); oxygen and vent → therapy (FiO2, oxygen flow, tidal volume and PEEP are settings of the
- * treatment, not measurements of the patient); patient → vital-signs for height and weight (both
- * belong to FHIR's vital-signs set), no category for age.
+ * index); oxygen and vent → therapy for settings (FiO2, oxygen flow, tidal volume and PEEP are
+ * settings of the treatment, not measurements of the patient) and none for what is read off the
+ * ventilator (plateau, peak and mean airway pressure, minute volume); patient → vital-signs for
+ * height and weight (both belong to FHIR's vital-signs set), no category for age.
  *
- * Time: notes hold relative days only. With `anchor` (an ISO 8601 date-time with seconds optional
- * and a zone, `Z` or `±hh:mm`, meaning 00:00 of day 1), `effectiveDateTime` is the anchor plus
- * the timepoint's minutes plus shiftDays × 1440 minutes, written with the anchor's own offset; a
+ * Time: notes hold relative days and clock times only. With `anchor` (an ISO 8601 date-time with
+ * seconds optional and a zone, `Z` or `±hh:mm`, meaning 00:00 of day 1), `effectiveDateTime` is
+ * the anchor plus the timepoint's minutes plus shiftDays × 1440 minutes, written with the
+ * anchor's own offset: the note's clock times are read as wall-clock times at that fixed offset,
+ * with no daylight-saving change applied (a note that crosses one is an hour off after it). A
  * timepoint whose day is known but not its time of day (`@ day 3`) gets the date alone
- * (`2024-03-03`, a dateTime to the day, as FHIR allows).
+ * (`2024-03-03`, a dateTime to the day, as FHIR allows); one whose time is unknown (an offset
+ * from an implicit first timepoint) gets no effective time.
  * Without an anchor no effective time is written, since a relative time is not a FHIR dateTime;
  * each Observation then says in `note` which timepoint (and relative day and clock time) it
  * belongs to. With redactProse that note leaves out the timepoint's label.
@@ -39,7 +57,7 @@ import type { NoteResult } from '../check-note';
 import type { InputValue, Timepoint } from '../analysis/model';
 import type { DerivedValue } from '../derive/model';
 import { derivedValueOf } from '../derive/registry';
-import { FIELDS, loincFor, type FieldDef } from '../fields/registry';
+import { FIELDS, loincFor, type FieldDef, type LoincCode } from '../fields/registry';
 import { unitById } from '../fields/units';
 import type { SectionId } from '../fields/sections';
 import { assertExportOptions, writtenLabel } from './columns';
@@ -62,7 +80,8 @@ export interface FhirCoding {
 }
 
 export interface FhirCodeableConcept {
-  readonly coding: readonly FhirCoding[];
+  /** Left out when no code fits (FHIR has no empty arrays): `text` alone says what was observed. */
+  readonly coding?: readonly FhirCoding[];
   readonly text?: string;
 }
 
@@ -134,7 +153,38 @@ const CATEGORY_OF_SECTION: Readonly<Record<SectionId, ObservationCategory | null
 export function observationCategory(field: FieldDef): ObservationCategory | null {
   if (field.id === 'age') return null;
   const section = field.sections[0];
-  return section ? CATEGORY_OF_SECTION[section] : null;
+  const category = section ? CATEGORY_OF_SECTION[section] : null;
+  // Plateau, peak and mean airway pressure, minute volume: read off the ventilator, not a setting.
+  return category === 'therapy' && field.reading ? null : category;
+}
+
+/** Sections whose numbers are exported as Observations (see the header comment). */
+const OBSERVED_SECTIONS: ReadonlySet<SectionId> = new Set<SectionId>(['patient', 'vitals', 'oxygen', 'vent', 'abg', 'vbg', 'labs']);
+
+/** Whether a field's values become Observations: numbers and pairs about the patient or the treatment. */
+export function isObservedField(field: FieldDef): boolean {
+  const section = field.sections[0];
+  return field.kind !== 'word' && section !== undefined && OBSERVED_SECTIONS.has(section);
+}
+
+/**
+ * Why a LOINC code does not fit a value of `field` stated in `section`, read from what the code's
+ * name says (its property in brackets, its specimen after `in`); null when nothing contradicts it.
+ */
+export function loincMismatch(loinc: LoincCode, field: FieldDef, section: SectionId): string | null {
+  const name = loinc.display;
+  if (name.includes('[Mass/volume]') && field.dimension !== 'mass-concentration') return `${loinc.code} is a mass concentration, the value is not`;
+  if (name.includes('[Moles/volume]') && field.dimension !== 'substance-concentration') return `${loinc.code} is a substance concentration, the value is not`;
+  if (/ in Arterial blood\b/.test(name) && section === 'vbg') return `${loinc.code} is for arterial blood, the value is from a venous gas`;
+  if (/ in Venous blood\b/.test(name) && section === 'abg') return `${loinc.code} is for venous blood, the value is from an arterial gas`;
+  if (/ in Serum or Plasma\b/.test(name) && (section === 'abg' || section === 'vbg')) return `${loinc.code} is for serum or plasma, the value is from a blood gas (whole blood)`;
+  return null;
+}
+
+/** The LOINC code an Observation of `field` stated in `section` carries, or null (see the header comment). */
+export function fhirLoinc(field: FieldDef, section: SectionId): LoincCode | null {
+  const loinc = loincFor(field, section);
+  return loinc && loincMismatch(loinc, field, section) === null ? loinc : null;
 }
 
 // Blood pressure components: LOINC codes from memory (the registry holds only the panel code).
@@ -226,17 +276,17 @@ interface Place {
   readonly note: string;
 }
 
-/** The Observation of one stated value; null when it has no LOINC code or no usable number. */
+/** The Observation of one stated value; null when the field is not exported or has no usable number. */
 function fieldObservation(field: FieldDef, input: InputValue, place: Place): Omit<FhirObservation, 'id'> | null {
-  // A ventilator's FiO2 is a setting with a code of its own.
-  const loinc = loincFor(field, input.stated.section);
+  // A ventilator's FiO2 is a setting with a code of its own; a code that does not fit is left out.
+  const loinc = fhirLoinc(field, input.stated.section);
   const unitId = input.stated.unit;
-  if (!loinc || !input.stated.usable || unitId === null) return null;
+  if (!isObservedField(field) || !input.stated.usable || unitId === null) return null;
   const base = {
     resourceType: 'Observation' as const,
     status: 'final' as const,
     ...categoryOf(observationCategory(field)),
-    code: { coding: [{ system: LOINC, code: loinc.code, display: loinc.display }], text: field.label },
+    code: { ...(loinc ? { coding: [{ system: LOINC, code: loinc.code, display: loinc.display }] } : {}), text: field.label },
     ...(place.effective ? { effectiveDateTime: place.effective } : {}),
   };
   const note = [{ text: place.note }];
