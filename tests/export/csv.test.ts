@@ -4,7 +4,7 @@
 import { parse } from 'csv-parse/sync';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { csvCells, csvField, csvHeader, csvRecord, exportColumns, timepointCells, timepointRows, toCsv, type ColumnDef, type Row } from '../../server/src/core/export';
+import { csvCells, csvField, csvHeader, csvRecord, exportColumns, spreadsheetText, timepointCells, timepointRows, toCsv, type ColumnDef, type Row } from '../../server/src/core/export';
 import { checked, samples } from './helpers';
 
 const plain = { redactProse: false, shiftDays: 0 } as const;
@@ -55,7 +55,7 @@ describe('CSV text', () => {
     for (const s of samples()) {
       const cells = timepointCells(s.path, s.result, plain);
       const rows = timepointRows(s.path, s.result, plain);
-      expect(cells.map(csvCells)).toEqual(rows.map((r) => csvRecord(columns, r)));
+      expect(cells.map((c) => csvCells(c))).toEqual(rows.map((r) => csvRecord(columns, r)));
       expect(cells.every((c) => c.length === columns.length)).toBe(true);
     }
   });
@@ -131,5 +131,48 @@ describe('redactProse', () => {
     const text = toCsv(exportColumns(), timepointRows('a.pneu', result, { redactProse: true, shiftDays: 0 }));
     expect(text).not.toContain('Example');
     expect(readBack(text)[0]?.label).toBe('');
+  });
+});
+
+describe('text that starts like a spreadsheet formula', () => {
+  const note = '@ day 1 08:00  =HYPERLINK("http://example.invalid","a, b")\nvitals hr 90\n@ +1h  +1\nabg be -4\n@ +1h  -2+3\n@ +1h  @cmd\n@ +1h  \'quoted\n@ +1h  plain = fine';
+  const safe = { spreadsheetSafe: true } as const;
+
+  it('is kept exactly by default (pipelines need the text as written)', () => {
+    const rows = timepointRows('=x.pneu', checked(note), plain);
+    const back = readBack(toCsv(exportColumns(), rows));
+    expect(back.map((r) => r.label)).toEqual(['=HYPERLINK("http://example.invalid","a, b")', '+1', '-2+3', '@cmd', "'quoted", 'plain = fine']);
+    expect(back[0]?.file).toBe('=x.pneu');
+  });
+
+  it('with spreadsheetSafe gets one apostrophe in front of text only, and removing it gives the text back', () => {
+    const rows = timepointRows('=x.pneu', checked(note), plain);
+    const back = readBack(toCsv(exportColumns(), rows, safe));
+    expect(back.map((r) => r.label)).toEqual(['\'=HYPERLINK("http://example.invalid","a, b")', "'+1", "'-2+3", "'@cmd", "''quoted", 'plain = fine']);
+    expect(back.map((r) => r.file)).toEqual(Array(6).fill("'=x.pneu"));
+    expect(back[1]?.base_excess_mmol_L).toBe('-4'); // a number, never changed
+    const undo = (cell: string) => (cell.startsWith("'") ? cell.slice(1) : cell);
+    expect(back.map((r) => undo(r.label!))).toEqual(rows.map((r) => r.label ?? ''));
+  });
+
+  it('guards tab and carriage return at the start too, and nothing else', () => {
+    expect(['=1', '+1', '-1', '@a', '\tx', '\rx', "'x"].map(spreadsheetText)).toEqual(["'=1", "'+1", "'-1", "'@a", "'\tx", "'\rx", "''x"]);
+    expect(['a=1', ' =1', '1', '', 'ü'].map(spreadsheetText)).toEqual(['a=1', ' =1', '1', '', 'ü']);
+    expect(csvField(-4, safe)).toBe('-4');
+    expect(csvField('=a,b', safe)).toBe('"\'=a,b"');
+  });
+
+  it('reads back exactly after removing one leading apostrophe, for any text (property)', () => {
+    const result = checked('@ day 1 08:00  x\nvitals hr 100');
+    const row = timepointRows('a.pneu', result, plain)[0]!;
+    const start = fc.constantFrom('=', '+', '-', '@', '\t', '\r', "'", 'a', ',', '"', '\n');
+    fc.assert(
+      fc.property(fc.array(fc.string({ unit: start }), { minLength: 1, maxLength: 4 }), (labels) => {
+        const back = readBack(toCsv(exportColumns(), labels.map((l): Row => ({ ...row, label: l })), safe));
+        expect(back.map((r) => (r.label!.startsWith("'") ? r.label!.slice(1) : r.label))).toEqual(labels);
+        for (const r of back) expect(r.label).not.toMatch(/^[=+\-@\t\r]/);
+      }),
+      { numRuns: 300 },
+    );
   });
 });

@@ -265,9 +265,17 @@ describe('time', () => {
   it('anchors must be a date-time with a zone', () => {
     expect(anchorProblem('2024-03-01T00:00:00Z')).toBeNull();
     expect(anchorProblem('2024-03-01T00:00+05:30')).toBeNull();
-    expect(anchorProblem('2024-03-01T00:00:00.250-03:00')).toBeNull();
+    expect(anchorProblem('2024-03-01T00:00:00.000-03:00')).toBeNull();
     for (const bad of ['2024-03-01', '2024-03-01T00:00:00', '2024-02-30T00:00Z', '2024-03-01T24:00Z', 'yesterday', '2024-03-01T00:00+15:00']) {
       expect(anchorProblem(bad), bad).not.toBeNull();
+      expect(() => toFhirBundle('a.pneu', result, { anchor: bad, redactProse: false, shiftDays: 0 }), bad).toThrow(RangeError);
+    }
+  });
+
+  it('an anchor that is not 00:00 is refused rather than moving every clock time of the note by its time', () => {
+    // `@ day 1 08:00` with an anchor of 08:00 would otherwise be written as 16:00.
+    for (const bad of ['2024-03-01T08:00:00Z', '2024-03-01T00:01Z', '2024-03-01T00:00:30+01:00', '2024-03-01T00:00:00.250-03:00']) {
+      expect(anchorProblem(bad), bad).toMatch(/is 00:00 of day 1.*write its time as 00:00 \(2024-03-01T00:00:00(Z|[+-]\d\d:\d\d)\)/);
       expect(() => toFhirBundle('a.pneu', result, { anchor: bad, redactProse: false, shiftDays: 0 }), bad).toThrow(RangeError);
     }
   });

@@ -24,18 +24,33 @@ const exportOptions = z.object({
   // A value not among them gets `validate`'s wording; a missing one names them too.
   format: z.enum(EXPORT_FORMATS, { error: (issue) => (issue.input === undefined ? `is required: ${wordList(EXPORT_FORMATS, 'or')}` : undefined) }),
   redact: z.boolean().default(false),
+  spreadsheetSafe: z.boolean().default(false),
   shiftDays: wholeNumberOption(-100000, 100000, 'expected a whole number of days from -100000 to 100000', true).optional(),
-  anchor: z.string().max(64, { message: 'is too long for a date-time' }).nullable().default(null).refine((a) => a === null || anchorProblem(a) === null, { message: 'not an ISO 8601 date-time with a zone, e.g. 2026-01-05T00:00:00Z' }),
+  anchor: z.string().max(64, { message: 'is too long for a date-time' }).nullable().default(null).superRefine((a, ctx) => {
+    const problem = a === null ? null : anchorProblem(a);
+    if (problem === null) return;
+    // A time other than 00:00 is a date-time all the same: say what is wrong with it.
+    const notMidnight = problem.includes('is 00:00 of day 1');
+    ctx.addIssue({ code: 'custom', message: notMidnight ? 'is 00:00 of day 1 (the note\'s clock times are added to it): write its time as 00:00, e.g. 2026-01-05T00:00:00Z' : 'not an ISO 8601 date-time with a zone, e.g. 2026-01-05T00:00:00Z' });
+  }),
   exclude: z.array(z.string().min(1).max(500)).max(100).default([]),
   jobs: jobsOption,
   progress: z.boolean().default(true),
 });
 
+/**
+ * The export task as this command builds it: the shared task of work.ts and the CSV option
+ * `--spreadsheet-safe`. The task reaches worker threads whole (as `workerData`), so the option
+ * holds there too (tests/export/cli.test.ts runs it with workers).
+ */
+type ExportTask = Parameters<ExportRenderer>[2] & { readonly spreadsheetSafe?: boolean };
+
 /** What one note contributes to the export (plain data, so it can come back from a worker). */
-export const exportRenderer: ExportRenderer = (path: string, result: NoteResult, task) => {
+export const exportRenderer: ExportRenderer = (path: string, result: NoteResult, task: ExportTask) => {
   const options = { redactProse: task.redactProse, shiftDays: task.shiftDays };
   if (task.format === 'csv') {
-    return timepointCells(path, result, options).map(csvCells).join('');
+    const csv = { spreadsheetSafe: task.spreadsheetSafe === true };
+    return timepointCells(path, result, options).map((cells) => csvCells(cells, csv)).join('');
   }
   if (task.format === 'jsonl') return toJsonl(path, result, options);
   return toFhirBundle(path, result, { ...options, ...(task.anchor ? { anchor: task.anchor } : {}) });
@@ -56,16 +71,17 @@ export function bundleText(payload: unknown): string | null {
 
 export async function runExport(args: readonly string[], io: Io): Promise<number> {
   const { positionals, values } = parse(args, {
-    format: { type: 'string' }, redact: { type: 'boolean' }, 'shift-days': { type: 'string' }, anchor: { type: 'string' },
+    format: { type: 'string' }, redact: { type: 'boolean' }, 'spreadsheet-safe': { type: 'boolean' }, 'shift-days': { type: 'string' }, anchor: { type: 'string' },
     exclude: { type: 'string', multiple: true }, jobs: { type: 'string' }, 'no-progress': { type: 'boolean' },
   });
   if (values.help) { io.stdout.write(`${HELP.export}\n`); return EXIT.ok; }
-  const opts = validate(exportOptions, { format: values.format, redact: values.redact, shiftDays: values['shift-days'], anchor: values.anchor ?? null, exclude: values.exclude, jobs: values.jobs, progress: !values['no-progress'] }, { progress: '--no-progress' });
+  const opts = validate(exportOptions, { format: values.format, redact: values.redact, spreadsheetSafe: values['spreadsheet-safe'], shiftDays: values['shift-days'], anchor: values.anchor ?? null, exclude: values.exclude, jobs: values.jobs, progress: !values['no-progress'] }, { progress: '--no-progress' });
   if (opts.anchor && opts.format !== 'fhir') throw new UsageError('--anchor only applies to --format fhir');
+  if (opts.spreadsheetSafe && opts.format !== 'csv') throw new UsageError('--spreadsheet-safe only applies to --format csv (JSON Lines and FHIR keep text exact)');
   if (positionals.length === 0) throw new UsageError('export needs at least one file, folder, pattern or - (stdin)');
   const { files, problems } = listInputs(positionals, io.cwd, opts.exclude);
   const configs = new ConfigReport(io.cwd).notes(files);
-  const task = { kind: 'export', format: opts.format, redactProse: opts.redact, shiftDays: opts.shiftDays ?? 0, anchor: opts.anchor } as const;
+  const task: ExportTask = { kind: 'export', format: opts.format, redactProse: opts.redact, shiftDays: opts.shiftDays ?? 0, anchor: opts.anchor, spreadsheetSafe: opts.spreadsheetSafe };
   // Each note's piece is written as soon as it and the notes before it are in, then let go: an
   // export of a big folder is larger than one string can hold, and need not sit in memory.
   const output = new Output(io.stdout);

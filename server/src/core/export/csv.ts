@@ -10,16 +10,42 @@
  *   doubled; other fields are written as they are (no trimming, no BOM, any Unicode).
  * - Numbers are written by JavaScript's own conversion (`String(n)`: `72.00591128118`, `-4`,
  *   `1e+21`), independent of locale; null, NaN and infinities are written as an empty field.
- * - Fields that start with `=`, `+`, `-` or `@` are not altered: spreadsheet programs may read
- *   such a label as a formula, so open an export in one with care (or export with redactProse).
+ * - Text is written exactly as it is by default, even when it starts with `=`, `+`, `-` or `@`:
+ *   spreadsheet programs may run such a cell (a timepoint label such as `=HYPERLINK(…)`, a file
+ *   name) as a formula when the file is opened in them, while a pipeline needs the exact text.
+ *   With `spreadsheetSafe` (`pneumark export --format csv --spreadsheet-safe`), every text cell
+ *   that starts with `=`, `+`, `-`, `@`, a tab, a carriage return or an apostrophe gets one more
+ *   apostrophe in front (`=1+1` → `'=1+1`, `'quoted` → `''quoted`), which spreadsheet programs
+ *   take as "text, not a formula". Numbers are never changed (`-4` stays a number). The change is
+ *   exact to undo: remove one leading apostrophe from every text cell that starts with one.
  */
 import type { Cell, ColumnDef, Row } from './columns';
 
+export interface CsvOptions {
+  /** Put an apostrophe before text that a spreadsheet program would read as a formula (see above). */
+  readonly spreadsheetSafe: boolean;
+}
+
+const EXACT: CsvOptions = { spreadsheetSafe: false };
+
+/**
+ * The first characters that make a spreadsheet program read a cell as a formula (`=`, `+`, `-`,
+ * `@`, tab, carriage return: OWASP, "CSV Injection", from memory), and the apostrophe itself, so
+ * that removing one leading apostrophe always gives the text back.
+ */
+const FORMULA_START = /^[=+\-@\t\r']/;
+
+/** Text as `spreadsheetSafe` writes it: with an apostrophe in front when it starts like a formula. */
+export function spreadsheetText(text: string): string {
+  return FORMULA_START.test(text) ? `'${text}` : text;
+}
+
 /** One field, quoted when it has to be. */
-export function csvField(value: Cell | undefined): string {
+export function csvField(value: Cell | undefined, options: CsvOptions = EXACT): string {
   if (value === null || value === undefined) return '';
   if (typeof value === 'number') return Number.isFinite(value) ? String(value) : '';
-  return /[",\r\n]/.test(value) ? `"${value.replace(/"/g, '""')}"` : value;
+  const text = options.spreadsheetSafe ? spreadsheetText(value) : value;
+  return /[",\r\n]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text;
 }
 
 /** The header record, ending with `\n`. */
@@ -28,18 +54,18 @@ export function csvHeader(columns: readonly ColumnDef[]): string {
 }
 
 /** One record of a row, in column order, ending with `\n`. A key the row lacks is an empty field. */
-export function csvRecord(columns: readonly ColumnDef[], row: Readonly<Row>): string {
-  return `${columns.map((c) => csvField(row[c.name])).join(',')}\n`;
+export function csvRecord(columns: readonly ColumnDef[], row: Readonly<Row>, options: CsvOptions = EXACT): string {
+  return `${columns.map((c) => csvField(row[c.name], options)).join(',')}\n`;
 }
 
 /** One record of cells already in column order (`timepointCells`), ending with `\n`. */
-export function csvCells(cells: readonly (Cell | undefined)[]): string {
+export function csvCells(cells: readonly (Cell | undefined)[], options: CsvOptions = EXACT): string {
   let out = '';
-  for (let k = 0; k < cells.length; k++) out += k === 0 ? csvField(cells[k]) : `,${csvField(cells[k])}`;
+  for (let k = 0; k < cells.length; k++) out += k === 0 ? csvField(cells[k], options) : `,${csvField(cells[k], options)}`;
   return `${out}\n`;
 }
 
 /** A whole CSV file: the header, then one record per row. */
-export function toCsv(columns: readonly ColumnDef[], rows: readonly Readonly<Row>[]): string {
-  return csvHeader(columns) + rows.map((row) => csvRecord(columns, row)).join('');
+export function toCsv(columns: readonly ColumnDef[], rows: readonly Readonly<Row>[], options: CsvOptions = EXACT): string {
+  return csvHeader(columns) + rows.map((row) => csvRecord(columns, row, options)).join('');
 }

@@ -38,7 +38,8 @@
  * height and weight (both belong to FHIR's vital-signs set), no category for age.
  *
  * Time: notes hold relative days and clock times only. With `anchor` (an ISO 8601 date-time with
- * seconds optional and a zone, `Z` or `±hh:mm`, meaning 00:00 of day 1), `effectiveDateTime` is
+ * seconds optional and a zone, `Z` or `±hh:mm`, meaning 00:00 of day 1, so its time must be 00:00:
+ * `2024-03-01T08:00Z` would move every clock time of the note by 8 hours and is refused), `effectiveDateTime` is
  * the anchor plus the timepoint's minutes plus shiftDays × 1440 minutes, written with the
  * anchor's own offset: the note's clock times are read as wall-clock times at that fixed offset,
  * with no daylight-saving change applied (a note that crosses one is an hour off after it). A
@@ -216,6 +217,10 @@ function parseAnchor(anchor: string): Anchor | string {
   const zoneOk = zone === 'Z' || (Number(zone.slice(1, 3)) <= 14 && Number(zone.slice(4, 6)) < 60);
   if (year < 1 || back.getUTCFullYear() !== year || back.getUTCMonth() !== month - 1 || back.getUTCDate() !== day || hour > 23 || minute > 59 || second > 59 || !zoneOk) {
     return `the anchor \`${anchor}\` is not a valid date and time`;
+  }
+  // The note's clock times are added to the anchor: any other time than 00:00 would move every one.
+  if (hour !== 0 || minute !== 0 || second !== 0 || ms !== 0) {
+    return `the anchor \`${anchor}\` is 00:00 of day 1, and the note's clock times are added to it: write its time as 00:00 (${m[1]}-${m[2]}-${m[3]}T00:00:00${zone})`;
   }
   return { wallMs, zone };
 }

@@ -14,7 +14,7 @@
  * files under tests/golden/ and a schema or read-back test under tests/export/.
  */
 export { exportColumns, timepointCells, timepointRows, findingsByTimepoint, findingsOfTimepoint, writtenLabel, RANGE_DERIVED_IDS, type Cell, type ColumnDef, type ColumnKind, type ExportOptions, type Row } from './columns';
-export { csvCells, csvField, csvHeader, csvRecord, toCsv } from './csv';
+export { csvCells, csvField, csvHeader, csvRecord, spreadsheetText, toCsv, type CsvOptions } from './csv';
 export { jsonlRecords, toJsonl, type JsonlFinding, type JsonlRecord } from './jsonl';
 export {
   anchorProblem,

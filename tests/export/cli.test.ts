@@ -1,0 +1,105 @@
+// `pneumark export` as a researcher runs it (the built CLI, dist/cli.js): options that only one
+// format takes, notes with nothing to export, unreadable files, and --spreadsheet-safe in worker
+// threads as in one thread. Needs `npm run build` first.
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { parse } from 'csv-parse/sync';
+import { describe, expect, it } from 'vitest';
+
+const CLI = join(process.cwd(), 'dist/cli.js');
+
+function cli(cwd: string, args: readonly string[]): { status: number | null; stdout: string; stderr: string } {
+  const r = spawnSync(process.execPath, [CLI, ...args], { cwd, encoding: 'utf8', env: { ...process.env, NO_COLOR: '1' }, maxBuffer: 1 << 26 });
+  return { status: r.status, stdout: r.stdout, stderr: r.stderr };
+}
+
+function folder(files: Readonly<Record<string, string | Buffer>>): string {
+  const dir = mkdtempSync(join(tmpdir(), 'pneumark-export-'));
+  for (const [name, text] of Object.entries(files)) writeFileSync(join(dir, name), text);
+  return dir;
+}
+
+const rowsOf = (csv: string): Record<string, string>[] => parse(csv, { columns: true }) as Record<string, string>[];
+
+describe('notes with nothing to export, and notes that cannot be read', () => {
+  const dir = folder({
+    'a-empty.pneu': '',
+    'b-header-only.pneu': 'patient age 40 y, height 170 cm\n',
+    'c-broken.pneu': '@ day 1 08:00  first\nvitls hr 100\nabg ph 7,35, pco2 41\n',
+    'd-binary.pneu': Buffer.from([0xff, 0xfe, 0x00, 0x01]),
+    'e-fine.pneu': '@ day 1 08:00\nvitals hr 90\n',
+  });
+
+  it('CSV: a row per timepoint of each readable note, the header once; the unreadable file named on stderr, exit code 2', () => {
+    const r = cli(dir, ['export', '.', '--format', 'csv']);
+    expect(r.status).toBe(2);
+    expect(r.stderr).toBe('pneumark: d-binary.pneu: looks like a binary file, not a note\n');
+    const rows = rowsOf(r.stdout);
+    expect(rows.map((x) => [x.file, x.timepoint, x.findings_errors])).toEqual([['c-broken.pneu', '0', '1'], ['e-fine.pneu', '0', '0']]);
+    expect(rows[0]?.ph_pH).toBe('7.35'); // read despite the decimal comma (a warning); `vitls` is the error
+    expect(r.stdout.split('\n').filter((l) => l.startsWith('file,'))).toHaveLength(1);
+  });
+
+  it('JSON Lines and FHIR go on the same way', () => {
+    const jsonl = cli(dir, ['export', '.', '--format', 'jsonl']);
+    expect(jsonl.status).toBe(2);
+    expect(jsonl.stdout.trimEnd().split('\n').map((l) => (JSON.parse(l) as { file: string }).file)).toEqual(['c-broken.pneu', 'e-fine.pneu']);
+    const fhir = cli(dir, ['export', '.', '--format', 'fhir']);
+    expect(fhir.status).toBe(2);
+    const bundles = JSON.parse(fhir.stdout) as { entry?: unknown[] }[];
+    // One Bundle per readable note; a note without a timepoint gives an empty collection, its
+    // header included (as it gives no CSV row).
+    expect(bundles.map((b) => b.entry?.length ?? 0)).toEqual([0, 0, 2, 1]);
+  });
+});
+
+describe('--spreadsheet-safe', () => {
+  const labels = ['=HYPERLINK("http://example.invalid","x")', '+SUM(1;2)', '-2+3', '@cmd', 'plain'];
+  const note = labels.map((l, i) => `@ day 1 0${i}:00  ${l}\nvitals hr 90\nabg be -4`).join('\n');
+
+  it('puts an apostrophe before text that starts like a formula, only when asked', () => {
+    const dir = folder({ '=note.pneu': note });
+    const exact = rowsOf(cli(dir, ['export', '.', '--format', 'csv']).stdout);
+    expect(exact.map((r) => r.label)).toEqual(labels);
+    const safe = cli(dir, ['export', '.', '--format', 'csv', '--spreadsheet-safe']);
+    expect(safe.status).toBe(0);
+    const rows = rowsOf(safe.stdout);
+    expect(rows.map((r) => r.label)).toEqual(labels.map((l) => (/^[=+\-@]/.test(l) ? `'${l}` : l)));
+    expect(rows.map((r) => r.file)).toEqual(Array(5).fill("'=note.pneu"));
+    expect(rows.map((r) => r.base_excess_mmol_L)).toEqual(Array(5).fill('-4'));
+  });
+
+  it('holds in worker threads as in one thread (200 notes)', () => {
+    const files: Record<string, string> = {};
+    for (let i = 0; i < 200; i++) files[`n${String(i).padStart(3, '0')}.pneu`] = note;
+    const dir = folder(files);
+    const one = cli(dir, ['export', '.', '--format', 'csv', '--spreadsheet-safe', '--jobs', '0', '--no-progress']);
+    const two = cli(dir, ['export', '.', '--format', 'csv', '--spreadsheet-safe', '--jobs', '2', '--no-progress']);
+    expect(one.status).toBe(0);
+    expect(two.stdout).toBe(one.stdout);
+    expect(rowsOf(two.stdout).filter((r) => r.label?.startsWith("'=")).length).toBe(200);
+  }, 60_000);
+
+  it('is refused with other formats, which keep text exact', () => {
+    const dir = folder({ 'a.pneu': note });
+    for (const format of ['jsonl', 'fhir']) {
+      const r = cli(dir, ['export', 'a.pneu', '--format', format, '--spreadsheet-safe']);
+      expect(r.status).toBe(2);
+      expect(r.stderr).toBe('pneumark export: --spreadsheet-safe only applies to --format csv (JSON Lines and FHIR keep text exact)\n');
+    }
+  });
+});
+
+describe('--anchor', () => {
+  it('must be 00:00 of day 1: another time is a usage error that says so, not a shift of every time', () => {
+    const dir = folder({ 'a.pneu': '@ day 1 08:00\nvitals hr 90\n' });
+    const r = cli(dir, ['export', 'a.pneu', '--format', 'fhir', '--anchor', '2024-03-01T08:00Z']);
+    expect(r.status).toBe(2);
+    expect(r.stderr).toBe('pneumark export: --anchor: is 00:00 of day 1 (the note\'s clock times are added to it): write its time as 00:00, e.g. 2026-01-05T00:00:00Z (got "2024-03-01T08:00Z")\n');
+    const ok = cli(dir, ['export', 'a.pneu', '--format', 'fhir', '--anchor', '2024-03-01T00:00+01:00']);
+    expect(ok.status).toBe(0);
+    expect(JSON.stringify(JSON.parse(ok.stdout))).toContain('"effectiveDateTime":"2024-03-01T08:00:00+01:00"');
+  });
+});
