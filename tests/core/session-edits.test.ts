@@ -13,16 +13,11 @@
 // `SESSION_RUNS=2000` stresses it locally; CI keeps the default.
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { checkNote, type NoteResult } from '../../server/src/core/check-note';
-import { FIELDS } from '../../server/src/core/fields/registry';
+import { checkNote } from '../../server/src/core/check-note';
 import { NoteSession } from '../../server/src/core/session';
 import type { Settings } from '../../server/src/core/settings';
-import { inlayHints } from '../../server/src/core/service/hints';
-import { documentSymbols, foldingRanges } from '../../server/src/core/service/symbols';
-import { HINT_CATEGORIES } from '../../server/src/core/service/types';
-import type { StatedValue } from '../../server/src/core/analysis/model';
-import type { DerivedValue } from '../../server/src/core/derive/model';
 import { generateNote } from '../bench/generate.mjs';
+import { sameAsJson, snapshot } from './session-snapshot';
 
 /** Edit sequences per test (each of about `EDITS` edits, every one compared with a fresh analysis). */
 const SESSION_RUNS = Number(process.env.SESSION_RUNS ?? 12);
@@ -46,58 +41,6 @@ class Dice {
   int(n: number): number { return Math.floor(this.next() * n); }
   pick<T>(list: readonly T[]): T { return list[this.int(list.length)]!; }
   chance(p: number): boolean { return this.next() < p; }
-}
-
-// ---- what is compared ------------------------------------------------------------------------
-
-function stated(s: StatedValue): unknown {
-  return {
-    fieldId: s.fieldId, section: s.section, line: s.line, value: s.value, parts: s.parts, word: s.word, unit: s.unit,
-    readUnit: s.readUnit, unitImplied: s.unitImplied, unitDoubt: s.unitDoubt, usable: s.usable,
-    item: { span: s.item.span, keyName: s.item.keyName, implied: s.item.implied, field: s.item.field?.id ?? null, valueKind: s.item.valueKind, number: s.item.number, unitText: s.item.unitText },
-  };
-}
-
-function derived(d: DerivedValue): unknown {
-  return {
-    id: d.id, label: d.label, short: d.short, category: d.category, value: d.value, unit: d.unit, decimals: d.decimals,
-    range: d.range, formula: d.formula, substituted: d.substituted, template: d.template, inputs: d.inputs, source: d.source,
-    estimate: d.estimate, notes: d.notes, usesCarried: d.usesCarried, line: d.line,
-  };
-}
-
-const FIELD_IDS = FIELDS.map((f) => f.id);
-const WHOLE_NOTE = { start: 0, end: Number.MAX_SAFE_INTEGER };
-const ALL_HINTS = { categories: new Set(HINT_CATEGORIES) };
-
-/** Everything a user sees of an analysis, as plain data. */
-export function snapshot(r: NoteResult): unknown {
-  const { timeline } = r.analysis;
-  return {
-    settings: r.settings,
-    lines: r.analysis.tree.lines.length,
-    eol: r.analysis.tree.eol,
-    findings: r.findings,
-    header: timeline.header.map(stated),
-    headerGasUnit: timeline.headerGasUnit,
-    readIssues: timeline.readIssues,
-    timepoints: timeline.timepoints.map((tp) => ({
-      index: tp.index, line: tp.line, label: tp.label, startLine: tp.startLine, endLine: tp.endLine, time: tp.time,
-      barometricMmhg: tp.barometricMmhg, gasUnit: tp.gasUnit, shownGasUnit: tp.shownGasUnit,
-      stated: tp.stated.map(stated),
-      values: [...tp.values.entries()].map(([id, v]) => [id, stated(v.stated), v.origin]),
-      // The readers that build nothing must agree with the values built.
-      size: tp.values.size,
-      quick: FIELD_IDS.map((id) => [id, tp.values.has(id), tp.values.numberOf(id), tp.values.originOf(id)]),
-    })),
-    derivations: timeline.timepoints.map((tp) => {
-      const d = r.analysis.derivation(tp.index);
-      return { timepoint: d.timepoint, derived: d.derived.map(derived), missing: d.missing, notApplicable: d.notApplicable, interpretations: d.interpretations };
-    }),
-    hints: inlayHints(r, WHOLE_NOTE, ALL_HINTS),
-    symbols: documentSymbols(r),
-    folding: foldingRanges(r),
-  };
 }
 
 // ---- notes and edits ---------------------------------------------------------------------------
@@ -364,9 +307,7 @@ function runSequence(seed: number, edits: number): string | null {
   const compare = (what: string): string | null => {
     const got = snapshot(session.update(text));
     const fresh = snapshot(checkNote(text, settings));
-    // Equal as JSON is equal for a user (and far quicker to find than a deep comparison); a
-    // difference is then looked at closely (-0, NaN and key order aside).
-    if (JSON.stringify(got) === JSON.stringify(fresh)) return null;
+    if (sameAsJson(got, fresh)) return null;
     try {
       expect(got).toEqual(fresh);
     } catch (error) {

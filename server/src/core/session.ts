@@ -39,14 +39,26 @@ export class NoteSession {
   private statsValue: SessionStats = { parsedLines: 0, reusedTimepoints: 0, timepoints: 0 };
 
   constructor(settings: Partial<Settings> = {}) {
-    this.settings = withDefaults(settings);
+    this.settings = ownSettings(settings);
   }
 
   setSettings(settings: Partial<Settings>): void {
-    this.settings = withDefaults(settings);
+    this.settings = ownSettings(settings);
+    this.forget();
+  }
+
+  /**
+   * Drops what the next update would reuse, so it reads the note afresh: after a change of
+   * settings, and after an update that failed part-way (its line starts may already describe a
+   * text whose analysis never finished).
+   */
+  private forget(): void {
     this.lastText = null;
+    this.lastChange = null;
+    this.starts = [];
     this.timelineCache = null;
     this.findings = new WeakMap();
+    this.partial = false;
   }
 
   get result(): NoteResult | null {
@@ -60,16 +72,23 @@ export class NoteSession {
   update(text: string): NoteResult {
     this.partial = false;
     if (this.last && text === this.lastText) return this.last;
-    const { tree, parsed } = this.parse(text);
-    this.lastChange = null; // it holds the old text
-    const { timeline, cache } = buildTimelineIncremental(tree, this.settings, this.timelineCache);
-    this.timelineCache = cache;
-    // Derived values are computed for the timepoints whose findings are not kept from the last
-    // run, and then dropped (see NoteAnalysis.derivation).
-    this.last = runChecks({ tree, timeline, derivation: deriverFor(timeline, this.settings) }, this.settings, undefined, this.findings);
-    this.lastText = text;
-    this.statsValue = { parsedLines: parsed, reusedTimepoints: cache.reused, timepoints: timeline.timepoints.length };
-    return this.last;
+    try {
+      const { tree, parsed } = this.parse(text);
+      this.lastChange = null; // it holds the old text
+      const { timeline, cache } = buildTimelineIncremental(tree, this.settings, this.timelineCache);
+      this.timelineCache = cache;
+      // Derived values are computed for the timepoints whose findings are not kept from the last
+      // run, and then dropped (see NoteAnalysis.derivation).
+      this.last = runChecks({ tree, timeline, derivation: deriverFor(timeline, this.settings) }, this.settings, undefined, this.findings);
+      this.lastText = text;
+      this.statsValue = { parsedLines: parsed, reusedTimepoints: cache.reused, timepoints: timeline.timepoints.length };
+      return this.last;
+    } catch (error) {
+      // The parse may have moved the line starts to `text` already: the next update must not read
+      // its text against them (a caller such as the server logs the error and goes on).
+      this.forget();
+      throw error;
+    }
   }
 
   /**
@@ -194,6 +213,16 @@ export class NoteSession {
     this.starts = starts;
     return { tree: { lines: nodes, eol: firstEol(text) }, parsed: middle.length };
   }
+}
+
+/**
+ * The settings a session keeps: its own frozen copy, so a caller that changes the object it passed
+ * (a `disabledChecks` list pushed onto) cannot leave findings kept under the old settings beside
+ * findings made under the new ones. Settings change through `setSettings`.
+ */
+function ownSettings(partial: Partial<Settings>): Settings {
+  const full = withDefaults(partial);
+  return Object.freeze({ ...full, disabledChecks: Object.freeze([...full.disabledChecks]) as string[] });
 }
 
 /** Line ends in `text[from, to)`, counted up to just over `limit`. */
