@@ -103,3 +103,53 @@ describe('--anchor', () => {
     expect(JSON.stringify(JSON.parse(ok.stdout))).toContain('"effectiveDateTime":"2024-03-01T08:00:00+01:00"');
   });
 });
+
+describe('CSV read back equals the analysis, value by value', () => {
+  interface JsonValue { field: string; value: number | string | number[] | null; usable: boolean; origin: { kind: string } }
+  interface JsonDerived { id: string; value: number; low?: number; high?: number }
+  interface JsonTimepoint { index: number; values: JsonValue[]; derived: JsonDerived[] }
+  interface JsonFile { path: string; timepoints: JsonTimepoint[] }
+
+  it('every cell of `export --format csv` is the value `check --format json` reports (samples and fixtures)', async () => {
+    const { exportColumns } = await import('../../server/src/core/export');
+    const root = process.cwd();
+    const paths = ['samples', 'tests/fixtures'];
+    const csv = cli(root, ['export', ...paths, '--format', 'csv']);
+    const json = cli(root, ['check', ...paths, '--format', 'json']);
+    expect(csv.stderr).toBe('');
+    const files = (JSON.parse(json.stdout) as { files: JsonFile[] }).files;
+    const rows = rowsOf(csv.stdout);
+    expect(rows.map((r) => `${r.file}#${r.timepoint}`)).toEqual(files.flatMap((f) => f.timepoints.map((t) => `${f.path}#${t.index}`)));
+    const columns = exportColumns();
+    let compared = 0;
+    let k = 0;
+    for (const file of files) {
+      for (const tp of file.timepoints) {
+        const row = rows[k++]!;
+        const values = new Map(tp.values.filter((v) => v.usable).map((v) => [v.field, v.value]));
+        const derived = new Map(tp.derived.map((d) => [d.id, d]));
+        // Carried values are named as such: the fields whose value came from an earlier timepoint.
+        const carried = tp.values.filter((v) => v.usable && v.origin.kind === 'carried').map((v) => v.field);
+        expect((row.carried_fields ? row.carried_fields.split(';') : []).sort(), `${file.path}#${tp.index} carried_fields`).toEqual(carried.sort());
+        for (const c of columns) {
+          if (c.kind === 'timepoint' || c.kind === 'summary' || c.name === 'gas_unit') continue;
+          const where = `${file.path}#${tp.index} ${c.name}`;
+          let expected: number | string | null;
+          if (c.kind === 'field') {
+            const v = values.get(c.source!) ?? null;
+            expected = Array.isArray(v) ? v[c.part === 'diastolic' ? 1 : 0] ?? null : v;
+          } else {
+            const d = derived.get(c.source!);
+            expected = d === undefined ? null : c.part === 'low' ? d.low ?? null : c.part === 'high' ? d.high ?? null : d.value;
+          }
+          const cell = row[c.name];
+          if (expected === null) expect(cell, where).toBe('');
+          else if (typeof expected === 'number') expect(Number(cell), where).toBe(expected);
+          else expect(cell, where).toBe(expected);
+          if (expected !== null) compared++;
+        }
+      }
+    }
+    expect(compared).toBeGreaterThan(500);
+  }, 60_000);
+});
