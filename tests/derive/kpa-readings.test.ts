@@ -13,9 +13,16 @@ describe('readings in a kPa note', () => {
     expect(r.ventilation).toBe('PaCO2 9.1 kPa (68 mmHg): consistent with hypercapnia (above 6.7 kPa): ventilation is not clearing CO2.');
   });
 
-  it('show a value and its threshold apart when they round alike: 6.7 kPa is above 6.67', () => {
+  it('read 6.7 kPa as 50 mmHg would be read, on the hypercapnia threshold and not above it', () => {
+    // 6.7 kPa stands for 6.65–6.75 kPa (49.9–50.6 mmHg), which holds 50 mmHg (6.67 kPa): written in
+    // kPa, it is how 50 mmHg is written, and 50 mmHg is not above 50.
     const r = readings('units gas kPa\n@ 08:00\noxygen room air\nabg ph 7.33, pco2 6.7, po2 11, hco3 26');
-    expect(r.ventilation).toBe('PaCO2 6.7 kPa (50.3 mmHg): consistent with hypercapnia (above 6.67 kPa): ventilation is not clearing CO2.');
+    expect(r.ventilation).toBe('PaCO2 6.7 kPa (50 mmHg): consistent with a mildly raised PaCO2, at the hypercapnia threshold of 6.7 kPa, not above it.');
+  });
+
+  it('read a value written with more decimals at that resolution: 6.68 kPa (50.1 mmHg) is above 6.67 kPa', () => {
+    const r = readings('units gas kPa\n@ 08:00\noxygen room air\nabg ph 7.33, pco2 6.68, po2 11, hco3 26');
+    expect(r.ventilation).toBe('PaCO2 6.68 kPa (50.1 mmHg): consistent with hypercapnia (above 6.67 kPa): ventilation is not clearing CO2.');
   });
 
   it('give an expected PaCO2 range in kPa', () => {

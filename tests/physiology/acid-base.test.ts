@@ -256,6 +256,22 @@ describe('classifyAcidBase', () => {
     expect(result?.consistency.calculatedHco3MmolL).toBeCloseTo(26, 0);
   });
 
+  it('compares a PaCO2 at the resolution it was written with (paco2ResolutionMmhg)', () => {
+    // 6.0 kPa = 45.004 mmHg, written to ± 0.05 kPa = ± 0.375 mmHg: on the 45 mmHg upper limit of the
+    // reference interval 35–45 mmHg (common practice, no source), as 45 mmHg is. With HCO3 20, pH
+    // 7.26 (0.0307 × 45 × 10^1.16 ≈ 19.9 mmol/L): a metabolic acidosis whose PaCO2 is above Winters'
+    // 36–40 mmHg (Albert, Dell & Winters 1967, from memory), not a mixed acidosis.
+    const paco2 = 6.0 * 7.50062;
+    expect(classifyAcidBase({ ph: 7.26, paco2Mmhg: paco2, hco3MmolL: 20 })?.primary).toBe('mixed-acidosis');
+    const written = classifyAcidBase({ ph: 7.26, paco2Mmhg: paco2, hco3MmolL: 20, paco2ResolutionMmhg: 0.375 });
+    expect(written?.primary).toBe('metabolic-acidosis');
+    expect(written?.additional).toEqual(['respiratory-acidosis']);
+    // 3.7 kPa (27.75 mmHg) with HCO3 12: Winters 24–28 mmHg holds it; 3.8 kPa (28.5 mmHg) is above
+    // it by more than the resolution.
+    expect(classifyAcidBase({ ph: 7.24, paco2Mmhg: 3.7 * 7.50062, hco3MmolL: 12, paco2ResolutionMmhg: 0.375 })?.compensation).toBe('appropriate');
+    expect(classifyAcidBase({ ph: 7.22, paco2Mmhg: 3.8 * 7.50062, hco3MmolL: 12, paco2ResolutionMmhg: 0.375 })?.compensation).toBe('insufficient');
+  });
+
   it('returns null for impossible inputs', () => {
     expect(classifyAcidBase({ ph: Number.NaN, paco2Mmhg: 40, hco3MmolL: 24 })).toBeNull();
     expect(classifyAcidBase({ ph: 7.4, paco2Mmhg: 0, hco3MmolL: 24 })).toBeNull();

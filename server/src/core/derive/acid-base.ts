@@ -34,7 +34,7 @@ const CLASSIFICATION: Kept<AcidBaseClassification | null, DeriveContext> = {
     if (!ph || !paco2 || !hco3) return null;
     const gap = c.derived('anion_gap_albumin_corrected') ?? c.derived('anion_gap');
     // The delta ratio takes the bicarbonate the gap was computed with (serum when the laboratory gave it).
-    return classifyAcidBase({ ph: ph.value, paco2Mmhg: paco2.value, hco3MmolL: hco3.value, anionGapMmolL: gap?.value, gapHco3MmolL: gap ? bicarbonate(c)?.value : undefined });
+    return classifyAcidBase({ ph: ph.value, paco2Mmhg: paco2.value, hco3MmolL: hco3.value, anionGapMmolL: gap?.value, gapHco3MmolL: gap ? bicarbonate(c)?.value : undefined, paco2ResolutionMmhg: c.writtenResolutionMmhg('paco2') });
   },
 };
 

@@ -8,7 +8,8 @@ import { fieldById } from '../fields/registry';
 import { displayUnit } from '../analysis/read-value';
 import type { Settings } from '../settings';
 import { formatNumber, wordList } from '../util/format';
-import { describeOrigin } from '../present';
+import { describeOrigin, writtenDecimals } from '../present';
+import { MMHG_PER_KPA } from '../physiology/units';
 import type { DerivedCategory, DerivedValue, InputOrigin, MissingValue, NotApplicable, Term } from './model';
 import { NONE } from '../util/lists';
 import { keptFor, SmallStore, type Kept } from '../util/small-store';
@@ -131,6 +132,20 @@ export class DeriveContext {
     const term = termOf(input, name);
     terms.set(id, term);
     return term;
+  }
+
+  /**
+   * How far (mmHg) a gas pressure in force can be from what it stands for when it was written in
+   * kPa: half a unit of its last written decimal, one decimal at least (6.7 kPa stands for
+   * 6.65–6.75 kPa, ± 0.375 mmHg). 0 for a pressure written in mmHg, which thresholds in mmHg take
+   * as it is. Thresholds are compared with it (`sideOf`), so that a value in kPa is on the same
+   * side of a threshold as the mmHg value it is written for: 8.0 kPa as 60 mmHg, 6.7 kPa as 50.
+   */
+  writtenResolutionMmhg(id: string): number {
+    const input = this.input(id);
+    if (!input || input.stated.readUnit !== 'kPa') return 0;
+    const decimals = Math.max(1, writtenDecimals(input.stated.item.value?.text ?? ''));
+    return 0.5 * 10 ** -decimals * MMHG_PER_KPA;
   }
 
   /** A word value in force (device, mode, sex). */

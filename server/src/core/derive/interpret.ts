@@ -5,13 +5,14 @@
  * practice). Grades and cut-offs not taken from settings are named below with their source.
  */
 import { BERLIN_BAND_SEVERITY, berlinOxygenationBand, type AcidBaseClassification, type AcidBaseDisorder } from '../physiology';
-import { forBand } from '../physiology/numeric';
+import { forBand, sideOf } from '../physiology/numeric';
+import { MMHG_PER_KPA } from '../physiology/units';
 import type { Settings } from '../settings';
 import { formatAgainst, formatNumber, formatShort, rangeAgainst, wordList } from '../util/format';
 import { KPA_DECIMALS, kpaFromMmhg, kpaNumber, showsKpa } from '../present';
 import { classification } from './acid-base';
 import { isAboveAlveolar } from './gas-exchange';
-import type { DeriveContext } from './context';
+import type { DeriveContext, Term } from './context';
 import type { Interpretation } from './model';
 
 /** PaO2 below this (mmHg) grades hypoxaemia as severe (common practice, no source). */
@@ -45,10 +46,29 @@ class GasWords {
   constructor(readonly kpa: boolean) {}
 
   /** A pressure: `59 mmHg`, or `7.9 kPa (59 mmHg)`. */
-  value(mmHg: number, t1 = NaN, t2 = NaN, t3 = NaN): string {
+  value(mmHg: number, t1 = NaN, t2 = NaN, t3 = NaN, kpaDecimals = KPA_DECIMALS): string {
     const inMmhg = `${formatAgainst(mmHg, 0, t1, t2, t3)} mmHg`;
     if (!this.kpa) return inMmhg;
-    return `${formatAgainst(kpaFromMmhg(mmHg), KPA_DECIMALS, kpaFromMmhg(t1), kpaFromMmhg(t2), kpaFromMmhg(t3))} kPa (${inMmhg})`;
+    return `${formatAgainst(kpaFromMmhg(mmHg), kpaDecimals, kpaFromMmhg(t1), kpaFromMmhg(t2), kpaFromMmhg(t3))} kPa (${inMmhg})`;
+  }
+
+  /**
+   * A measured pressure with the resolution it was written with (`writtenResolutionMmhg`): a
+   * threshold it is on is not pushed apart from it by more decimals (6.7 kPa on 50 mmHg shows
+   * as `6.7 kPa (50 mmHg)`, not `(50.3 mmHg)`).
+   */
+  measured(mmHg: number, resolution: number, t1 = NaN, t2 = NaN, t3 = NaN): string {
+    const off = (t: number) => (sideOf(mmHg, t, resolution) === 0 ? NaN : t);
+    return this.value(mmHg, off(t1), off(t2), off(t3), kpaDecimalsOf(resolution));
+  }
+
+  /**
+   * A threshold a value is on (`sideOf` gives 0): `60 mmHg`, or in kPa with the decimals the value
+   * was written with, at least one (`8.0 kPa`, not the `7.999 kPa` that 60 mmHg is).
+   */
+  on(mmHg: number, resolution: number): string {
+    if (!this.kpa) return `${formatShort(mmHg)} mmHg`;
+    return `${formatNumber(kpaFromMmhg(mmHg), kpaDecimalsOf(resolution))} kPa`;
   }
 
   /** A threshold read against `value`: `60 mmHg`, or `8.0 kPa`. */
@@ -69,6 +89,12 @@ class GasWords {
   }
 }
 
+/** The kPa decimals a value was written with, from its resolution (`writtenResolutionMmhg`); at least one. */
+function kpaDecimalsOf(resolutionMmhg: number): number {
+  if (!(resolutionMmhg > 0)) return KPA_DECIMALS;
+  return Math.max(KPA_DECIMALS, Math.round(-Math.log10((2 * resolutionMmhg) / MMHG_PER_KPA)));
+}
+
 export function interpret(c: DeriveContext, settings: Settings): Interpretation[] {
   const out: Interpretation[] = [];
   const gasHere = c.statedHere('pao2') || c.statedHere('paco2') || c.statedHere('ph');
@@ -79,8 +105,12 @@ export function interpret(c: DeriveContext, settings: Settings): Interpretation[
   const push = (topic: Interpretation['topic'], text: string, basis: string[], notable = true) => out.push({ topic, text, basis, line, notable });
   const gas = new GasWords(showsKpa(c.timepoint));
 
-  const hypoxaemic = pao2 !== null && pao2.value < settings.hypoxaemiaBelowMmhg;
-  const hypercapnic = paco2 !== null && paco2.value > settings.hypercapniaAboveMmhg;
+  // A gas written in kPa is compared with a threshold at the resolution it was written with, so
+  // that it falls on the side the mmHg value it is written for would: 8.0 kPa as 60 mmHg, 6.7 kPa as 50.
+  const o2Resolution = c.writtenResolutionMmhg('pao2');
+  const co2Resolution = c.writtenResolutionMmhg('paco2');
+  const hypoxaemic = pao2 !== null && sideOf(pao2.value, settings.hypoxaemiaBelowMmhg, o2Resolution) < 0;
+  const hypercapnic = paco2 !== null && sideOf(paco2.value, settings.hypercapniaAboveMmhg, co2Resolution) > 0;
   const fio2 = c.fio2();
   const onOxygen = fio2 !== null && fio2.value > 0.21 + 1e-9;
   // An oxygen device in force whose FiO2 is not stated (a cannula, a mask): oxygen, amount unknown.
@@ -100,15 +130,19 @@ export function interpret(c: DeriveContext, settings: Settings): Interpretation[
     const pf = c.derivedValue('pf_ratio');
     // Numbers are shown with the decimals that keep them on their side of the thresholds named.
     const hypoxaemiaAt = settings.hypoxaemiaBelowMmhg;
+    const pao2Shown = (t1: number, t2 = NaN) => gas.measured(pao2.value, o2Resolution, t1, t2);
+    const onHypoxaemiaThreshold = sideOf(pao2.value, hypoxaemiaAt, o2Resolution) === 0;
     if (hypoxaemic) {
-      const grade = pao2.value < SEVERE_HYPOXAEMIA_MMHG ? 'severe' : 'moderate';
-      push('oxygenation', `PaO2 ${gas.value(pao2.value, hypoxaemiaAt, SEVERE_HYPOXAEMIA_MMHG)}: consistent with ${grade} hypoxaemia (below ${gas.threshold(hypoxaemiaAt, pao2.value)}${grade === 'severe' ? `, and below ${gas.threshold(SEVERE_HYPOXAEMIA_MMHG, pao2.value)}` : ''})${onOxygen ? ` despite FiO2 ${formatNumber(fio2.value, 2)}` : ''}.`, ['pao2']);
+      const grade = sideOf(pao2.value, SEVERE_HYPOXAEMIA_MMHG, o2Resolution) < 0 ? 'severe' : 'moderate';
+      push('oxygenation', `PaO2 ${pao2Shown(hypoxaemiaAt, SEVERE_HYPOXAEMIA_MMHG)}: consistent with ${grade} hypoxaemia (below ${gas.threshold(hypoxaemiaAt, pao2.value)}${grade === 'severe' ? `, and below ${gas.threshold(SEVERE_HYPOXAEMIA_MMHG, pao2.value)}` : ''})${onOxygen ? ` despite ${fio2Words(fio2)}` : ''}.`, ['pao2']);
     } else if (onOxygen && pf && forBand(pf.value) <= 300) {
-      push('oxygenation', `PaO2 ${gas.value(pao2.value, hypoxaemiaAt)} on FiO2 ${formatNumber(fio2.value, 2)} (P/F ${gas.kpa ? `${kpaNumber(pf.value)} kPa, ` : ''}${formatAgainst(pf.value, 0, 300)} mmHg): consistent with impaired oxygenation supported by oxygen.`, ['pao2', 'pf_ratio']);
-    } else if (pao2.value < LOW_NORMAL_PAO2_MMHG) {
-      push('oxygenation', `PaO2 ${gas.value(pao2.value, hypoxaemiaAt, LOW_NORMAL_PAO2_MMHG)}: consistent with mildly reduced oxygenation, above the hypoxaemia threshold of ${gas.threshold(hypoxaemiaAt, pao2.value)}.`, ['pao2'], false);
+      const carried = carriedWords(fio2);
+      push('oxygenation', `PaO2 ${pao2Shown(hypoxaemiaAt)} on FiO2 ${formatNumber(fio2.value, 2)} (P/F ${gas.kpa ? `${kpaNumber(pf.value)} kPa, ` : ''}${formatAgainst(pf.value, 0, 300)} mmHg${carried ? `; ${carried}` : ''}): consistent with impaired oxygenation supported by oxygen.`, ['pao2', 'pf_ratio']);
+    } else if (sideOf(pao2.value, LOW_NORMAL_PAO2_MMHG, o2Resolution) < 0) {
+      const where = onHypoxaemiaThreshold ? `at the hypoxaemia threshold of ${gas.on(hypoxaemiaAt, o2Resolution)}, not below it` : `above the hypoxaemia threshold of ${gas.threshold(hypoxaemiaAt, pao2.value)}`;
+      push('oxygenation', `PaO2 ${pao2Shown(hypoxaemiaAt, LOW_NORMAL_PAO2_MMHG)}: consistent with mildly reduced oxygenation, ${where}.`, ['pao2'], false);
     } else {
-      push('oxygenation', `PaO2 ${gas.value(pao2.value, LOW_NORMAL_PAO2_MMHG)}${onOxygen ? ` on FiO2 ${formatNumber(fio2.value, 2)}` : ''}: consistent with adequate arterial oxygenation.`, ['pao2'], false);
+      push('oxygenation', `PaO2 ${pao2Shown(LOW_NORMAL_PAO2_MMHG)}${onOxygen ? ` on ${fio2Words(fio2)}` : ''}: consistent with adequate arterial oxygenation.`, ['pao2'], false);
     }
     // Berlin oxygenation band: only with PEEP or CPAP ≥ 5 cmH2O; an oxygenation band, never a diagnosis.
     const peep = c.peepLike();
@@ -120,7 +154,8 @@ export function interpret(c: DeriveContext, settings: Settings): Interpretation[
         const words = band === 'pf-200-to-300' ? '200–300' : band === 'pf-100-to-200' ? '100–200' : '≤ 100';
         // The bands are defined in mmHg: a kPa note gets the P/F in both units.
         const pfShown = `${formatAgainst(pfForBand.value, 0, 100, 200, 300)} mmHg`;
-        push('oxygenation-band', `P/F ${gas.kpa ? `${kpaNumber(pfForBand.value)} kPa (${pfShown})` : pfShown}${adjusted ? ' (adjusted for altitude)' : ''} with ${peep.name} ${formatAgainst(peep.value, 0, BERLIN_MIN_PEEP_CMH2O)} cmH2O: consistent with the ${words} mmHg oxygenation band of the Berlin definition (the band called ${BERLIN_BAND_SEVERITY[band]} there) — an oxygenation band, not a diagnosis.`, [adjusted ? 'pf_ratio_altitude_adjusted' : 'pf_ratio', peep.fieldId ?? 'peep']);
+        const carried = carriedWords(fio2, peep);
+        push('oxygenation-band', `P/F ${gas.kpa ? `${kpaNumber(pfForBand.value)} kPa (${pfShown})` : pfShown}${adjusted ? ' (adjusted for altitude)' : ''} with ${peep.name} ${formatAgainst(peep.value, 0, BERLIN_MIN_PEEP_CMH2O)} cmH2O${carried ? ` (${carried})` : ''}: consistent with the ${words} mmHg oxygenation band of the Berlin definition (the band called ${BERLIN_BAND_SEVERITY[band]} there) — an oxygenation band, not a diagnosis.`, [adjusted ? 'pf_ratio_altitude_adjusted' : 'pf_ratio', peep.fieldId ?? 'peep']);
       }
     }
   }
@@ -128,14 +163,17 @@ export function interpret(c: DeriveContext, settings: Settings): Interpretation[
   // Ventilation
   if (paco2) {
     const v = paco2.value;
-    const text = v > settings.hypercapniaAboveMmhg
-      ? `consistent with hypercapnia (above ${gas.threshold(settings.hypercapniaAboveMmhg, v)}): ventilation is not clearing CO2`
-      : v > UPPER_NORMAL_PACO2_MMHG
-        ? `consistent with a mildly raised PaCO2, below the hypercapnia threshold of ${gas.threshold(settings.hypercapniaAboveMmhg, v)}`
-        : v < settings.hypocapniaBelowMmhg
+    const hypercapniaAt = settings.hypercapniaAboveMmhg;
+    const hypocapnic = sideOf(v, settings.hypocapniaBelowMmhg, co2Resolution) < 0;
+    const below = sideOf(v, hypercapniaAt, co2Resolution) === 0 ? `at the hypercapnia threshold of ${gas.on(hypercapniaAt, co2Resolution)}, not above it` : `below the hypercapnia threshold of ${gas.threshold(hypercapniaAt, v)}`;
+    const text = hypercapnic
+      ? `consistent with hypercapnia (above ${gas.threshold(hypercapniaAt, v)}): ventilation is not clearing CO2`
+      : sideOf(v, UPPER_NORMAL_PACO2_MMHG, co2Resolution) > 0
+        ? `consistent with a mildly raised PaCO2, ${below}`
+        : hypocapnic
           ? `consistent with hypocapnia (below ${gas.threshold(settings.hypocapniaBelowMmhg, v)}): ventilation above metabolic need`
           : 'consistent with normal ventilation';
-    push('ventilation', `PaCO2 ${gas.value(v, settings.hypercapniaAboveMmhg, UPPER_NORMAL_PACO2_MMHG, settings.hypocapniaBelowMmhg)}: ${text}.`, ['paco2'], v > settings.hypercapniaAboveMmhg || v < settings.hypocapniaBelowMmhg);
+    push('ventilation', `PaCO2 ${gas.measured(v, co2Resolution, hypercapniaAt, UPPER_NORMAL_PACO2_MMHG, settings.hypocapniaBelowMmhg)}: ${text}.`, ['paco2'], hypercapnic || hypocapnic);
   }
 
   // Respiratory failure
@@ -144,15 +182,15 @@ export function interpret(c: DeriveContext, settings: Settings): Interpretation[
   } else if (pao2 && paco2) {
     if (hypoxaemic && hypercapnic) push('respiratory-failure', 'Consistent with type 2 (hypercapnic) respiratory failure: hypoxaemia with hypercapnia.', ['pao2', 'paco2']);
     else if (hypoxaemic) push('respiratory-failure', 'Consistent with type 1 (hypoxaemic) respiratory failure: hypoxaemia with normal or low PaCO2.', ['pao2', 'paco2']);
-    else if (hypercapnic && onOxygen) push('respiratory-failure', `Consistent with type 2 (hypercapnic) respiratory failure, with PaO2 held up by supplemental oxygen (FiO2 ${formatNumber(fio2.value, 2)}).`, ['pao2', 'paco2', 'fio2']);
+    else if (hypercapnic && onOxygen) push('respiratory-failure', `Consistent with type 2 (hypercapnic) respiratory failure, with PaO2 held up by supplemental oxygen (${fio2Words(fio2)}).`, ['pao2', 'paco2', 'fio2']);
     else if (hypercapnic && oxygenDevice !== null) push('respiratory-failure', `Consistent with type 2 (hypercapnic) respiratory failure, with PaO2 held up by supplemental oxygen (${oxygenDevice}, FiO2 not stated).`, ['pao2', 'paco2', 'device']);
     // FiO2 unknown: oxygen may be holding the PaO2 up, so no negative statement is made.
-    else if (hypercapnic && fio2 === null) push('respiratory-failure', `Hypercapnia with a PaO2 above ${gas.threshold(settings.hypoxaemiaBelowMmhg)} and no FiO2 stated: on supplemental oxygen this would be consistent with type 2 (hypercapnic) respiratory failure; add ${c.fio2Need()} to tell.`, ['pao2', 'paco2']);
+    else if (hypercapnic && fio2 === null) push('respiratory-failure', `Hypercapnia with a PaO2 ${sideOf(pao2.value, settings.hypoxaemiaBelowMmhg, o2Resolution) === 0 ? `at ${gas.on(settings.hypoxaemiaBelowMmhg, o2Resolution)}` : `above ${gas.threshold(settings.hypoxaemiaBelowMmhg, pao2.value)}`} and no FiO2 stated: on supplemental oxygen this would be consistent with type 2 (hypercapnic) respiratory failure; add ${c.fio2Need()} to tell.`, ['pao2', 'paco2']);
     else if (hypercapnic) push('respiratory-failure', 'Hypercapnia without hypoxaemia on air: not consistent with respiratory failure by the PaO2 criterion.', ['pao2', 'paco2', 'fio2'], false);
   }
 
   // Mechanism of hypoxaemia
-  if (hypoxaemic) out.push(...mechanism(c, settings, line, gas));
+  if (hypoxaemic) out.push(...mechanism(c, settings, line, gas, hypercapnic));
 
   // Acid–base
   const cls = classification(c);
@@ -164,7 +202,7 @@ export function interpret(c: DeriveContext, settings: Settings): Interpretation[
   return out;
 }
 
-function mechanism(c: DeriveContext, settings: Settings, line: number | null, gas: GasWords): Interpretation[] {
+function mechanism(c: DeriveContext, settings: Settings, line: number | null, gas: GasWords, hypercapnic: boolean): Interpretation[] {
   const pio2 = c.derivedValue('pio2');
   const gradient = c.derivedValue('aa_gradient');
   const upper = c.derivedValue('aa_gradient_upper_normal');
@@ -181,7 +219,7 @@ function mechanism(c: DeriveContext, settings: Settings, line: number | null, ga
   const causes: string[] = [];
   const basis = ['pio2', 'aa_gradient', 'paco2'];
   if (pio2.value < LOW_PIO2_MMHG) causes.push(`low inspired oxygen (PiO2 ${gas.value(pio2.value, LOW_PIO2_MMHG)})`);
-  if (paco2.value > settings.hypercapniaAboveMmhg) causes.push(`hypoventilation (PaCO2 ${gas.value(paco2.value, settings.hypercapniaAboveMmhg)})`);
+  if (hypercapnic) causes.push(`hypoventilation (PaCO2 ${gas.value(paco2.value, settings.hypercapniaAboveMmhg)})`);
   const raised = gradient.value > limit;
   const gradientShown = gas.value(gradient.value, limit);
   const limitShown = gas.limit(limit, gradient.value);
@@ -192,6 +230,29 @@ function mechanism(c: DeriveContext, settings: Settings, line: number | null, ga
   if (causes.length === 0) return [{ topic: 'hypoxaemia-mechanism', text: `Hypoxaemia without a low PiO2, hypercapnia or a raised A–a gradient: recheck the inputs.${normalGradient}${caveat}`, basis, line, notable: true }];
   const text = causes.length === 1 ? `Hypoxaemia consistent with ${causes[0]}.` : `Hypoxaemia consistent with a mix of ${wordList(causes)}.`;
   return [{ topic: 'hypoxaemia-mechanism', text: `${text}${normalGradient}${caveat}`, basis, line, notable: true }];
+}
+
+/**
+ * Which of a reading's settings were stated at an earlier timepoint (a ventilator's FiO2 and PEEP
+ * carry forward), since the reading is then only as current as that line: `FiO2 and PEEP carried
+ * from line 3`; '' when none was. The line, not the timepoint's label: a label is free text.
+ */
+function carriedWords(...terms: readonly (Term | null)[]): string {
+  const byOrigin = new Map<string, string[]>();
+  for (const t of terms) {
+    if (t === null || t.origin.kind !== 'carried') continue;
+    const where = `carried from line ${t.origin.line + 1}`;
+    const names = byOrigin.get(where) ?? [];
+    names.push(t.name);
+    byOrigin.set(where, names);
+  }
+  return [...byOrigin].map(([where, names]) => `${wordList(names)} ${where}`).join('; ');
+}
+
+/** `FiO2 0.60`, with where it came from when it was carried: `FiO2 0.60 (carried from line 3)`. */
+function fio2Words(fio2: Term): string {
+  const value = `FiO2 ${formatNumber(fio2.value, 2)}`;
+  return fio2.origin.kind === 'carried' ? `${value} (carried from line ${fio2.origin.line + 1})` : value;
 }
 
 function acidBaseText(cls: AcidBaseClassification, gas: GasWords): string {

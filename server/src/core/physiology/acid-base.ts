@@ -7,7 +7,7 @@
  * or outside the stated domain. pH must lie on the aqueous scale 0–14 to be accepted here;
  * whether it is plausible for blood is the check layer's business.
  */
-import { allFinite, finiteOrNull, forBand, inClosedRange } from './numeric';
+import { allFinite, finiteOrNull, forBand, inClosedRange, sideOf } from './numeric';
 
 /** Citations for the formulas in this module (key → citation). */
 export const SOURCES = Object.freeze({
@@ -193,6 +193,13 @@ export interface AcidBaseInput {
    * bicarbonate where the gap used it. Defaults to `hco3MmolL`.
    */
   readonly gapHco3MmolL?: number | undefined;
+  /**
+   * How far (mmHg) the PaCO2 as written can be from what it stands for, for comparisons with the
+   * reference interval and the expected range: half a unit of the last decimal of a PaCO2 written
+   * in kPa (0.05 kPa = 0.375 mmHg for one decimal), so that 6.0 kPa (45.004 mmHg) is on the 45 mmHg
+   * upper limit as its writer reads it, not above it. Default 0: compared exactly (mmHg as written).
+   */
+  readonly paco2ResolutionMmhg?: number | undefined;
 }
 
 export interface AcidBaseClassification {
@@ -414,11 +421,11 @@ function within(value: number, range: NumericRange): boolean {
  * Inside the pH interval: the only abnormal component; for a compensating pair, the one on the
  * pH's side of 7.40 (at exactly 7.40, the larger relative shift).
  */
-function primaryFinding(ph: number, paco2: number, hco3: number): PrimaryAcidBaseFinding {
+function primaryFinding(ph: number, paco2: number, hco3: number, paco2Resolution: number): PrimaryAcidBaseFinding {
   const metabolic: Direction | null =
     hco3 < HCO3_NORMAL_MMOL_L.low ? 'acid' : hco3 > HCO3_NORMAL_MMOL_L.high ? 'alkali' : null;
   const respiratory: Direction | null =
-    paco2 > PACO2_NORMAL_MMHG.high ? 'acid' : paco2 < PACO2_NORMAL_MMHG.low ? 'alkali' : null;
+    sideOf(paco2, PACO2_NORMAL_MMHG.high, paco2Resolution) > 0 ? 'acid' : sideOf(paco2, PACO2_NORMAL_MMHG.low, paco2Resolution) < 0 ? 'alkali' : null;
   const phDirection: Direction | null = ph < PH_NORMAL.low ? 'acid' : ph > PH_NORMAL.high ? 'alkali' : null;
 
   if (metabolic !== null && metabolic === respiratory) {
@@ -463,7 +470,7 @@ const NOT_APPLICABLE: CompensationResult = Object.freeze({
   additional: Object.freeze([]),
 });
 
-function compensationFor(primary: PrimaryAcidBaseFinding, paco2: number, hco3: number): CompensationResult {
+function compensationFor(primary: PrimaryAcidBaseFinding, paco2: number, hco3: number, paco2Resolution: number): CompensationResult {
   switch (primary) {
     case 'metabolic-acidosis':
     case 'metabolic-alkalosis': {
@@ -478,10 +485,10 @@ function compensationFor(primary: PrimaryAcidBaseFinding, paco2: number, hco3: n
       };
       // The response lowers PaCO2 in metabolic acidosis and raises it in metabolic alkalosis.
       const acidosis = primary === 'metabolic-acidosis';
-      if (paco2 > range.high) {
+      if (sideOf(paco2, range.high, paco2Resolution) > 0) {
         return { compensation: acidosis ? 'insufficient' : 'excessive', expected, chronicity: null, additional: ['respiratory-acidosis'] };
       }
-      if (paco2 < range.low) {
+      if (sideOf(paco2, range.low, paco2Resolution) < 0) {
         return { compensation: acidosis ? 'excessive' : 'insufficient', expected, chronicity: null, additional: ['respiratory-alkalosis'] };
       }
       return { compensation: 'appropriate', expected, chronicity: null, additional: [] };
@@ -562,8 +569,9 @@ export function classifyAcidBase(input: AcidBaseInput): AcidBaseClassification |
   if (consistency === null) return null;
 
   const phStatus: PhStatus = ph < PH_NORMAL.low ? 'acidaemia' : ph > PH_NORMAL.high ? 'alkalaemia' : 'normal';
-  const primary = primaryFinding(ph, paco2, hco3);
-  const { compensation, expected, chronicity, additional: fromCompensation } = compensationFor(primary, paco2, hco3);
+  const resolution = input.paco2ResolutionMmhg !== undefined && allFinite(input.paco2ResolutionMmhg) && input.paco2ResolutionMmhg > 0 ? input.paco2ResolutionMmhg : 0;
+  const primary = primaryFinding(ph, paco2, hco3, resolution);
+  const { compensation, expected, chronicity, additional: fromCompensation } = compensationFor(primary, paco2, hco3, resolution);
 
   const fromPrimary = primaryDisorders(primary);
   const additional: AcidBaseDisorder[] = [...fromCompensation];

@@ -42,3 +42,17 @@ export function isPercent(value: number): boolean {
 export function forBand(value: number): number {
   return Math.round(value * 1e9) / 1e9;
 }
+
+/**
+ * Which side of `threshold` a measured value is on: 1 above, −1 below, 0 on it. `resolution` is
+ * how far the value as written can be from what it stands for (half a unit of its last written
+ * decimal, in the threshold's unit): a value within that of the threshold cannot be told from it
+ * and is on it. A gas written as 6.7 kPa (50.25 mmHg) stands for 6.65–6.75 kPa, which holds
+ * 50 mmHg (6.67 kPa): it is on a 50 mmHg threshold, as 50 mmHg written in mmHg is. 0 (the
+ * default) compares exactly, with `forBand`'s rounding.
+ */
+export function sideOf(value: number, threshold: number, resolution = 0): -1 | 0 | 1 {
+  const difference = forBand(value) - forBand(threshold);
+  if (resolution > 0 && Math.abs(difference) < resolution) return 0;
+  return difference > 0 ? 1 : difference < 0 ? -1 : 0;
+}
