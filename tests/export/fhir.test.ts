@@ -161,6 +161,15 @@ describe('codes that fit the value', () => {
     expect(validator.validate(b, true)).toEqual([]);
   });
 
+  it('the flow of a high-flow device is the total gas flow, so it is not coded as inhaled oxygen flow (3151-8)', () => {
+    const b = toFhirBundle('a.pneu', checked('@ day 1 08:00\noxygen hfnc 50 L/min, fio2 60 %\n@ +1h\noxygen cannula 2 L/min\n@ +1h\noxygen mask 10 L/min'), noAnchor);
+    expect(codeOf(b, 'obs-0-o2-flow')).toEqual({ text: 'Oxygen flow' });
+    expect(byId(b, 'obs-0-o2-flow')?.valueQuantity?.value).toBe(50);
+    expect(codeOf(b, 'obs-1-o2-flow')?.coding?.map((c) => c.code)).toEqual(['3151-8']);
+    expect(codeOf(b, 'obs-2-o2-flow')?.coding?.map((c) => c.code)).toEqual(['3151-8']);
+    expect(validator.validate(b, true)).toEqual([]);
+  });
+
   it('the registry codes left out, by field and section, are exactly these (a change shows in review)', () => {
     const dropped: string[] = [];
     for (const f of FIELDS) {

@@ -20,7 +20,8 @@
  * code's name says agrees with the value (`fhirLoinc`): a `[Mass/volume]` code is never put on a
  * value in mmol/L (nor `[Moles/volume]` on one in g/dL), an arterial-blood code never on a value
  * from a `vbg` line nor a venous one on an `abg` line, and a serum-or-plasma code never on a value
- * from a blood gas (`abg`, `vbg`), which is measured in whole blood. A value whose field has no
+ * from a blood gas (`abg`, `vbg`), which is measured in whole blood; and the oxygen flow code
+ * (3151-8) never on the flow of a high-flow device (`hfnc`), which is the total gas flow. A value whose field has no
  * code, or whose code does not fit, is still exported, with `code.text` alone and no coding: a
  * wrong code is worse than none. A code marked `fromMemory` in the registry was recalled, not read
  * from the LOINC table.
@@ -172,8 +173,10 @@ export function isObservedField(field: FieldDef): boolean {
  * Why a LOINC code does not fit a value of `field` stated in `section`, read from what the code's
  * name says (its property in brackets, its specimen after `in`); null when nothing contradicts it.
  */
-export function loincMismatch(loinc: LoincCode, field: FieldDef, section: SectionId): string | null {
+export function loincMismatch(loinc: LoincCode, field: FieldDef, section: SectionId, device: string | null = null): string | null {
   const name = loinc.display;
+  // A high-flow device's flow is the total gas flow (air and oxygen blended to the FiO2), not the oxygen flow.
+  if (/^Inhaled oxygen flow rate\b/.test(name) && device === 'hfnc') return `${loinc.code} is the oxygen flow, the value is the total gas flow of a high-flow device`;
   if (name.includes('[Mass/volume]') && field.dimension !== 'mass-concentration') return `${loinc.code} is a mass concentration, the value is not`;
   if (name.includes('[Moles/volume]') && field.dimension !== 'substance-concentration') return `${loinc.code} is a substance concentration, the value is not`;
   if (/ in Arterial blood\b/.test(name) && section === 'vbg') return `${loinc.code} is for arterial blood, the value is from a venous gas`;
@@ -182,10 +185,13 @@ export function loincMismatch(loinc: LoincCode, field: FieldDef, section: Sectio
   return null;
 }
 
-/** The LOINC code an Observation of `field` stated in `section` carries, or null (see the header comment). */
-export function fhirLoinc(field: FieldDef, section: SectionId): LoincCode | null {
+/**
+ * The LOINC code an Observation of `field` stated in `section` carries, or null (see the header
+ * comment); `device` is the oxygen device in force at the timepoint (`hfnc`, `cannula`, …).
+ */
+export function fhirLoinc(field: FieldDef, section: SectionId, device: string | null = null): LoincCode | null {
   const loinc = loincFor(field, section);
-  return loinc && loincMismatch(loinc, field, section) === null ? loinc : null;
+  return loinc && loincMismatch(loinc, field, section, device) === null ? loinc : null;
 }
 
 // Blood pressure components: LOINC codes from memory (the registry holds only the panel code).
@@ -279,12 +285,14 @@ interface Place {
   readonly key: string;
   readonly effective: string | null;
   readonly note: string;
+  /** The oxygen device in force there (its flow means another thing on a high-flow device). */
+  readonly device: string | null;
 }
 
 /** The Observation of one stated value; null when the field is not exported or has no usable number. */
 function fieldObservation(field: FieldDef, input: InputValue, place: Place): Omit<FhirObservation, 'id'> | null {
   // A ventilator's FiO2 is a setting with a code of its own; a code that does not fit is left out.
-  const loinc = fhirLoinc(field, input.stated.section);
+  const loinc = fhirLoinc(field, input.stated.section, place.device);
   const unitId = input.stated.unit;
   if (!isObservedField(field) || !input.stated.usable || unitId === null) return null;
   const base = {
@@ -330,7 +338,7 @@ export function toFhirBundle(path: string, result: NoteResult, options: FhirOpti
   // Header values, once.
   const header = new Map<string, InputValue>();
   for (const tp of timepoints) for (const [id, input] of tp.values) if (input.origin.kind === 'header' && !header.has(id)) header.set(id, input);
-  const headerPlace: Place = { key: 'header', effective: null, note: 'Pneumark note header (describes the patient for the whole note)' };
+  const headerPlace: Place = { key: 'header', effective: null, note: 'Pneumark note header (describes the patient for the whole note)', device: null };
   for (const field of FIELDS) {
     const input = header.get(field.id);
     const resource = input ? fieldObservation(field, input, headerPlace) : null;
@@ -345,7 +353,8 @@ export function toFhirBundle(path: string, result: NoteResult, options: FhirOpti
         // A day without a time of day: a FHIR dateTime to the day (`2024-03-02`), never an invented midnight.
         : finite(day) ? shiftedDateTime(anchor, (day - 1 + options.shiftDays) * MINUTES_PER_DAY)?.slice(0, 10) ?? null
           : null;
-    const place: Place = { key: String(tp.index), effective, note: timepointNote(tp, writtenLabel(result, tp), options) };
+    const device = tp.values.get('device');
+    const place: Place = { key: String(tp.index), effective, note: timepointNote(tp, writtenLabel(result, tp), options), device: device?.stated.usable ? device.stated.word : null };
     for (const field of FIELDS) {
       const input = tp.values.get(field.id);
       if (!input || input.origin.kind !== 'here') continue;
