@@ -12,7 +12,7 @@
 import type { NoteResult } from '../check-note';
 import type { StatedValue } from '../analysis/model';
 import { checkByCodeOrAlias } from '../checks/registry';
-import { fieldById } from '../fields/registry';
+import { fieldById, type FieldDef } from '../fields/registry';
 import { comparePositions, type Finding, type Fix, type Range, type TextEdit } from '../types';
 import { allStated, isValidPosition, itemAt, lineAt } from './locate';
 import { parseLine } from '../syntax/parser';
@@ -22,6 +22,8 @@ import { displayUnit } from '../analysis/read-value';
 import { convertNoteUnits, itemConversionEdits, numberIn, otherUnit, shorthandConversionEdits, shorthandPressures, type GasUnit } from './unit-conversion';
 import type { ActionInfo } from './types';
 import { pushAll } from '../util/lists';
+import { convert, unitById, unitsForSpelling, type UnitDef } from '../fields/units';
+import { within } from '../analysis/bounds';
 
 export { convertNoteUnits } from './unit-conversion';
 
@@ -131,8 +133,10 @@ function shorthandActions(result: NoteResult, line: number): ActionInfo[] {
 
 /**
  * Whether a fix keeps every value of the lines it edits readable: the line, re-parsed with the
- * fix applied, holds at least as many values. (A guard: a fix that would break a line, such as
- * a unit inserted inside a shorthand gas, is not offered.)
+ * fix applied, holds at least as many values and has no more problems of any kind that the line
+ * alone shows (`lineProblems`). (A guard: a fix that would break a line, such as a unit inserted
+ * inside a shorthand gas, or that would trade one problem for another, such as `temp 37 mmHg`
+ * changed to the impossible `37 F`, is not offered.)
  */
 export function keepsValues(result: NoteResult, fix: Fix): boolean {
   const byLine = new Map<number, TextEdit[]>();
@@ -153,9 +157,56 @@ export function keepsValues(result: NoteResult, fix: Fix): boolean {
     }
     if (/[\r\n]/.test(text)) continue;
     const values = (n: LineNode) => (n.kind === 'section' ? n.items.filter((i) => i.value !== null).length : 0);
-    if (values(parseLine(text, line)) < values(node)) return false;
+    const fixed = parseLine(text, line);
+    if (values(fixed) < values(node) || addsProblem(node, fixed)) return false;
   }
   return true;
+}
+
+/**
+ * Whether the fixed line has more problems of some kind than the line had: a fix that glues a
+ * section word to a number (`patient,7,35` → `patient7,35`), that names a section for a key with
+ * no value (`lac` → `abg lac`) or whose values it cannot read (`ht 07:40` → `patient ht 07:40`),
+ * or that trades a wrong unit for an impossible value (`temp 37 mmHg` → `37 F`).
+ */
+function addsProblem(before: LineNode, after: LineNode): boolean {
+  const counts = lineProblems(before);
+  for (const [kind, n] of lineProblems(after)) if (n > (counts.get(kind) ?? 0)) return true;
+  return false;
+}
+
+/**
+ * The problems of one line that can be told from the line alone, by kind: its syntax problems,
+ * keys its section does not have, units its fields do not take, and numbers written in a unit in
+ * which they are impossible for their field but possible in another unit it takes (`temp 37 F`).
+ */
+function lineProblems(node: LineNode): Map<string, number> {
+  const counts = new Map<string, number>();
+  const add = (kind: string) => counts.set(kind, (counts.get(kind) ?? 0) + 1);
+  for (const issue of node.issues) add(issue.check);
+  if (node.kind !== 'section') return counts;
+  for (const item of node.items) {
+    const field = item.field;
+    if (!field) {
+      if (item.key) add('unknown-key');
+      continue;
+    }
+    if (item.unitText === null || field.kind === 'word') continue;
+    const written = unitsForSpelling(item.unitText).find((u) => field.units?.includes(u.id));
+    if (!written) {
+      add('unit');
+      continue;
+    }
+    if (item.number !== null && impossibleIn(field, item.number, written) && (field.units ?? []).some((id) => !impossibleIn(field, item.number!, unitById(id)))) add('wrong-unit');
+  }
+  return counts;
+}
+
+/** Whether a number written in a unit is outside what is possible for the field (false when it cannot be told). */
+function impossibleIn(field: FieldDef, written: number, unit: UnitDef | undefined): boolean {
+  const canonical = field.unit ? unitById(field.unit) : undefined;
+  const value = unit && canonical ? convert(written, unit, canonical) : null;
+  return value !== null && field.hard !== undefined && !within(value, field.hard);
 }
 
 function preferredFix(f: Finding): Fix | undefined {
