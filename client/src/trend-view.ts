@@ -2,107 +2,223 @@
  * The trend view: a webview beside the note that plots, per timepoint, the gases, oxygen
  * settings and mechanics. The data come from the server (`pneumark/trends`); the webview runs a
  * bundled charting library with a strict content security policy (a nonce, no remote resources).
- * It follows the note it was opened for, updates when that note is analysed again, and a click
- * on a point moves the editor to that timepoint.
+ *
+ * It shows one note, named in its title, and follows the user: when another Pneumark note
+ * becomes the active editor, the view shows that one. It updates when its note is analysed
+ * again; when the note is closed it keeps its last trends and says so; a click on a point or a
+ * timepoint's button in the table moves the editor to that timepoint. After a reload of the
+ * window VS Code gives the panel back to the serializer, which reopens the note it showed.
  */
 import { randomBytes } from 'node:crypto';
 import * as vscode from 'vscode';
-import type { LanguageClient } from 'vscode-languageclient/node';
-import { TRENDS_REQUEST, type TrendsParams, type TrendsResult } from '../../server/src/protocol';
-import type { FromWebview, ToWebview } from '../webview/messages';
+import { TRENDS_REQUEST, type TrendPoint, type TrendsParams, type TrendsResult } from '../../server/src/protocol';
+import { fromWebview, trendViewState, type FromWebview, type ToWebview } from '../webview/messages';
+import { LANGUAGE, type Requester } from './status';
+import { trendPageHtml } from './trend-html';
 
-export class TrendView implements vscode.Disposable {
+export const TREND_VIEW_TYPE = 'pneumark.trends';
+
+export class TrendView implements vscode.Disposable, vscode.WebviewPanelSerializer {
   private panel: vscode.WebviewPanel | null = null;
+  private panelDisposables: vscode.Disposable[] = [];
+  /** The note on show. */
   private uri: vscode.Uri | null = null;
-  private pending: NodeJS.Timeout | null = null;
+  /** Its points from the last answer, shown again when the page reloads or the note is closed. */
+  private last: { uri: string; points: readonly TrendPoint[] } | null = null;
+  private pending: ReturnType<typeof setTimeout> | null = null;
+  /** Bumped by every refresh: an answer to an older one (another note, older text) is dropped. */
+  private generation = 0;
   private readonly disposables: vscode.Disposable[] = [];
 
-  constructor(private readonly context: vscode.ExtensionContext, private readonly client: () => LanguageClient | null) {}
+  constructor(private readonly extensionUri: vscode.Uri, private readonly send: () => Requester | null, private readonly refreshDelayMs = 150) {
+    this.disposables.push(
+      vscode.window.onDidChangeActiveTextEditor((editor) => {
+        if (this.panel && editor && editor.document.languageId === LANGUAGE && editor.document.uri.toString() !== this.uri?.toString()) this.follow(editor.document);
+      }),
+      vscode.workspace.onDidCloseTextDocument((document) => {
+        if (this.panel && document.uri.toString() === this.uri?.toString()) void this.refresh();
+      }),
+    );
+  }
 
+  /** Opens the view beside the note (or brings it forward) and shows that note. */
   show(document: vscode.TextDocument | undefined): void {
-    if (!document || document.languageId !== 'pneumark') {
+    if (!document || document.languageId !== LANGUAGE) {
       void vscode.window.showInformationMessage('Open a Pneumark note (.pneu) to see its trends.');
       return;
     }
-    this.uri = document.uri;
-    if (!this.panel) this.panel = this.createPanel();
-    this.panel.title = `Trends: ${vscode.workspace.asRelativePath(document.uri)}`;
-    this.panel.reveal(vscode.ViewColumn.Beside, true);
-    void this.refresh();
+    if (this.panel) {
+      this.panel.reveal(this.panel.viewColumn, true);
+    } else {
+      const panel = vscode.window.createWebviewPanel(TREND_VIEW_TYPE, 'Trends', { viewColumn: vscode.ViewColumn.Beside, preserveFocus: true }, this.options());
+      this.adopt(panel);
+    }
+    this.follow(document);
+  }
+
+  /** The note on show, if any (for tests and the status bar). */
+  get note(): vscode.Uri | null {
+    return this.uri;
+  }
+
+  /** Restores the panel after a reload of the window (VS Code calls this). */
+  async deserializeWebviewPanel(panel: vscode.WebviewPanel, state: unknown): Promise<void> {
+    if (this.panel) {
+      // One trend view at a time: a second restored panel is not needed.
+      panel.dispose();
+      return;
+    }
+    panel.webview.options = this.options();
+    this.adopt(panel);
+    const saved = trendViewState(state);
+    const active = vscode.window.activeTextEditor?.document;
+    if (saved) {
+      let uri: vscode.Uri | null = null;
+      try {
+        uri = vscode.Uri.parse(saved.uri, true);
+      } catch {
+        uri = null;
+      }
+      if (uri) {
+        this.uri = uri;
+        this.panel!.title = `Trends: ${this.name(uri)}`;
+        await this.refresh();
+        return;
+      }
+    }
+    if (active && active.languageId === LANGUAGE) this.follow(active);
+    else await this.post({ type: 'notice', message: 'Open a Pneumark note and run "Pneumark: Show Trends" to see its trends.' });
   }
 
   /** Called when the server has analysed a note: refresh if it is the one on show. */
   noteAnalysed(uri: string): void {
     if (!this.panel || this.uri?.toString() !== uri) return;
     if (this.pending) clearTimeout(this.pending);
-    this.pending = setTimeout(() => void this.refresh(), 150);
+    this.pending = setTimeout(() => { this.pending = null; void this.refresh(); }, this.refreshDelayMs);
   }
 
   dispose(): void {
+    if (this.pending) clearTimeout(this.pending);
     this.panel?.dispose();
     for (const d of this.disposables) d.dispose();
   }
 
-  private createPanel(): vscode.WebviewPanel {
-    const root = vscode.Uri.joinPath(this.context.extensionUri, 'dist', 'webview');
-    const panel = vscode.window.createWebviewPanel('pneumark.trends', 'Trends', { viewColumn: vscode.ViewColumn.Beside, preserveFocus: true }, {
+  private options(): vscode.WebviewPanelOptions & vscode.WebviewOptions {
+    return {
       enableScripts: true,
-      localResourceRoots: [root],
+      enableCommandUris: false,
+      enableForms: false,
+      localResourceRoots: [vscode.Uri.joinPath(this.extensionUri, 'dist', 'webview')],
       retainContextWhenHidden: false,
+    };
+  }
+
+  private follow(document: vscode.TextDocument): void {
+    if (!this.panel) return;
+    this.uri = document.uri;
+    this.panel.title = `Trends: ${this.name(document.uri)}`;
+    void this.refresh();
+  }
+
+  private name(uri: vscode.Uri): string {
+    return uri.scheme === 'untitled' ? uri.path : vscode.workspace.asRelativePath(uri);
+  }
+
+  private adopt(panel: vscode.WebviewPanel): void {
+    this.panel = panel;
+    const root = vscode.Uri.joinPath(this.extensionUri, 'dist', 'webview');
+    panel.webview.html = trendPageHtml({
+      cspSource: panel.webview.cspSource,
+      nonce: randomBytes(16).toString('base64'),
+      script: panel.webview.asWebviewUri(vscode.Uri.joinPath(root, 'trends.js')).toString(),
+      style: panel.webview.asWebviewUri(vscode.Uri.joinPath(root, 'trends.css')).toString(),
     });
-    panel.webview.html = this.html(panel.webview, root);
-    panel.onDidDispose(() => { this.panel = null; }, null, this.disposables);
-    panel.webview.onDidReceiveMessage((m: FromWebview) => this.onMessage(m), null, this.disposables);
-    return panel;
+    this.panelDisposables.push(
+      panel.onDidDispose(() => {
+        if (this.panel !== panel) return;
+        this.panel = null;
+        this.uri = null;
+        this.last = null;
+        for (const d of this.panelDisposables.splice(0)) d.dispose();
+      }),
+      panel.webview.onDidReceiveMessage((m: unknown) => {
+        const message = fromWebview(m);
+        if (message) void this.onMessage(message);
+      }),
+    );
   }
 
+  private isOpen(uri: vscode.Uri): boolean {
+    const key = uri.toString();
+    return vscode.workspace.textDocuments.some((d) => d.uri.toString() === key && !d.isClosed);
+  }
+
+  /** Asks the server for the note's points and posts them; keeps the last ones for a closed note. */
   private async refresh(): Promise<void> {
-    const client = this.client();
-    if (!this.panel || !this.uri || !client) return;
+    const generation = ++this.generation;
+    const uri = this.uri;
+    if (!this.panel || !uri) return;
+    const key = uri.toString();
+    const note = this.name(uri);
+    if (!this.isOpen(uri)) {
+      if (this.last?.uri === key) {
+        await this.post({ type: 'trends', points: this.last.points, note, uri: key, closed: true });
+        return;
+      }
+      // After a reload of the window the note may not be open: open it (as a document, not an
+      // editor) so that the server reads it. An untitled note that was closed is gone.
+      if (uri.scheme === 'untitled') {
+        await this.post({ type: 'notice', message: `${note} was closed without being saved: there are no trends to show.` });
+        return;
+      }
+      try {
+        await vscode.workspace.openTextDocument(uri);
+      } catch {
+        if (generation === this.generation) await this.post({ type: 'notice', message: `${note} could not be opened: it may have been moved or deleted.` });
+        return;
+      }
+      if (generation !== this.generation) return;
+    }
+    const send = this.send();
+    if (!send) {
+      await this.post({ type: 'error', message: 'the Pneumark language server is not running (run "Pneumark: Restart Language Server")' });
+      return;
+    }
     try {
-      const params: TrendsParams = { uri: this.uri.toString() };
-      const result = await client.sendRequest<TrendsResult | null>(TRENDS_REQUEST, params);
-      const message: ToWebview = { type: 'trends', points: result?.points ?? [], note: vscode.workspace.asRelativePath(this.uri) };
-      await this.panel?.webview.postMessage(message);
+      const result = await send<TrendsResult | null>(TRENDS_REQUEST, { uri: key } satisfies TrendsParams);
+      if (generation !== this.generation || this.uri?.toString() !== key) return;
+      if (result === null && this.last?.uri === key && !this.isOpen(uri)) {
+        await this.post({ type: 'trends', points: this.last.points, note, uri: key, closed: true });
+        return;
+      }
+      const points = result?.points ?? [];
+      this.last = { uri: key, points };
+      await this.post({ type: 'trends', points, note, uri: key, closed: false });
     } catch (error) {
-      const message: ToWebview = { type: 'error', message: error instanceof Error ? error.message : String(error) };
-      await this.panel?.webview.postMessage(message);
+      if (generation !== this.generation) return;
+      await this.post({ type: 'error', message: error instanceof Error ? error.message : String(error) });
     }
   }
 
-  private onMessage(m: FromWebview): void {
-    if (m.type === 'ready') void this.refresh();
-    if (m.type === 'reveal' && this.uri && Number.isInteger(m.line) && m.line >= 0) {
-      const position = new vscode.Position(m.line, 0);
-      void vscode.window.showTextDocument(this.uri, { viewColumn: vscode.ViewColumn.One, selection: new vscode.Range(position, position), preserveFocus: false });
-    }
+  private async post(message: ToWebview): Promise<void> {
+    await this.panel?.webview.postMessage(message);
   }
 
-  private html(webview: vscode.Webview, root: vscode.Uri): string {
-    const nonce = randomBytes(16).toString('base64');
-    const script = webview.asWebviewUri(vscode.Uri.joinPath(root, 'trends.js'));
-    const style = webview.asWebviewUri(vscode.Uri.joinPath(root, 'trends.css'));
-    const csp = [
-      "default-src 'none'",
-      `img-src ${webview.cspSource} data:`,
-      `style-src ${webview.cspSource} 'nonce-${nonce}'`,
-      `script-src 'nonce-${nonce}'`,
-      `font-src ${webview.cspSource}`,
-    ].join('; ');
-    return `<!DOCTYPE html>
-<html lang="en">
-<head>
-<meta charset="UTF-8">
-<meta http-equiv="Content-Security-Policy" content="${csp}">
-<meta name="viewport" content="width=device-width, initial-scale=1.0">
-<link rel="stylesheet" href="${style}" nonce="${nonce}">
-<title>Trends</title>
-</head>
-<body>
-<header><h1 id="title">Trends</h1><p class="caution">Decision support only — defer to local protocols and licensed practice.</p></header>
-<main id="charts" aria-live="polite"><p class="empty">Waiting for the note's analysis…</p></main>
-<script nonce="${nonce}" src="${script}"></script>
-</body>
-</html>`;
+  private async onMessage(m: FromWebview): Promise<void> {
+    if (m.type === 'ready') {
+      await this.refresh();
+      return;
+    }
+    if (!this.uri) return;
+    const uri = this.uri;
+    const position = new vscode.Position(m.line, 0);
+    // The editor already showing the note, else a column other than the view's own.
+    const visible = vscode.window.visibleTextEditors.find((e) => e.document.uri.toString() === uri.toString());
+    const viewColumn = visible?.viewColumn ?? (this.panel?.viewColumn === vscode.ViewColumn.One ? vscode.ViewColumn.Two : vscode.ViewColumn.One);
+    try {
+      await vscode.window.showTextDocument(uri, { viewColumn, selection: new vscode.Range(position, position), preserveFocus: false });
+    } catch {
+      void vscode.window.showWarningMessage(`${this.name(uri)} could not be opened: it may have been moved, deleted or closed without being saved.`);
+    }
   }
 }

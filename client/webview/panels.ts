@@ -101,3 +101,39 @@ export function legendText(v: number | null, unit: TrendUnit): string {
   if (unit === 'pH') return v.toFixed(2);
   return `${String(Number(v.toFixed(1)))} ${unit}`;
 }
+
+/**
+ * What the view says instead of charts, or null when it has charts to draw: a note with no
+ * timepoint, or with timepoints but none of the values the view plots (a note of vital signs
+ * only would otherwise show an empty page).
+ */
+export function emptyMessage(points: readonly TrendPoint[]): string | null {
+  if (points.length === 0) return 'This note has no timepoints yet: add one with a line such as "@ day 1 08:00".';
+  if (panelLayouts(points).length > 0) return null;
+  const names = PANELS.flatMap((p) => p.series.map((s) => s.label));
+  return `No values to plot yet: the trend view draws ${names.slice(0, -1).join(', ')} and ${names[names.length - 1]!} (driving pressure), once a timepoint has one.`;
+}
+
+/** The values of each timepoint as a table, the charts' keyboard- and screen-reader-friendly twin. */
+export interface TimepointTable {
+  /** One heading per plotted series, with its unit: `PaO2 (kPa)`, `pH`. */
+  readonly headings: readonly string[];
+  readonly rows: readonly { readonly label: string; readonly line: number; readonly cells: readonly string[] }[];
+}
+
+export function timepointTable(points: readonly TrendPoint[]): TimepointTable {
+  const series = panelLayouts(points).flatMap((p) => p.series);
+  return {
+    headings: series.map((s) => (s.unit === 'pH' ? s.label : `${s.label} (${s.unit})`)),
+    rows: points.map((p) => ({
+      label: p.label,
+      line: p.line,
+      cells: series.map((s) => {
+        const v = p.values[s.key];
+        // The unit is in the heading; a value carried from an earlier timepoint is marked.
+        const text = v === undefined ? '—' : legendText(v.value, v.unit).replace(/ .*$/, '');
+        return v !== undefined && p.carried.includes(s.key) ? `${text}*` : text;
+      }),
+    })),
+  };
+}

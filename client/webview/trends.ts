@@ -1,17 +1,20 @@
 /**
  * The trend view's page: small multiples drawn with uPlot (bundled, no network), coloured from
- * the editor theme's chart colours, redrawn on each message from the extension. What each panel
- * holds, its axis labels and legend texts come from panels.ts; values are drawn in the units the
- * server gives them in (gas pressures in the note's unit, mmHg or kPa). Clicking a chart moves
- * the editor to the timepoint under the cursor.
+ * the editor theme's chart colours, redrawn on each message from the extension and when the
+ * theme changes. What each panel holds, its axis labels and legend texts come from panels.ts;
+ * values are drawn in the units the server gives them in (gas pressures in the note's unit, mmHg
+ * or kPa). Clicking a chart moves the editor to the timepoint under the cursor; below the charts
+ * a table of the same values has a button per timepoint, so the keyboard and screen readers
+ * reach every timepoint too.
  */
 import uPlot from 'uplot';
 import type { TrendPoint } from '../../server/src/protocol';
-import type { FromWebview, ToWebview } from './messages';
-import { legendText, panelLayouts } from './panels';
+import type { FromWebview, ToWebview, TrendViewState } from './messages';
+import { emptyMessage, legendText, panelLayouts, timepointTable } from './panels';
 
 interface VsCodeApi {
   postMessage(message: FromWebview): void;
+  setState(state: TrendViewState): void;
 }
 declare function acquireVsCodeApi(): VsCodeApi;
 
@@ -19,6 +22,10 @@ const vscode = acquireVsCodeApi();
 
 const charts: uPlot[] = [];
 let points: readonly TrendPoint[] = [];
+let lastNote = '';
+let lastClosed = false;
+/** Nothing has come from the extension yet: the page keeps its "waiting" line. */
+let received = false;
 
 function themeColour(name: string, fallback: string): string {
   const value = getComputedStyle(document.body).getPropertyValue(`--vscode-charts-${name}`).trim();
@@ -39,7 +46,18 @@ function xValues(list: readonly TrendPoint[]): { xs: number[]; hours: boolean } 
   return { xs: list.map((p, i) => (hours ? (p.minutes ?? 0) / 60 : i + 1)), hours };
 }
 
-function render(list: readonly TrendPoint[], note: string): void {
+function reveal(line: number): void {
+  vscode.postMessage({ type: 'reveal', line });
+}
+
+function paragraph(className: string, text: string): HTMLParagraphElement {
+  const p = document.createElement('p');
+  p.className = className;
+  p.textContent = text;
+  return p;
+}
+
+function render(list: readonly TrendPoint[], note: string, closed: boolean): void {
   points = list;
   for (const c of charts.splice(0)) c.destroy();
   const main = document.getElementById('charts');
@@ -47,11 +65,10 @@ function render(list: readonly TrendPoint[], note: string): void {
   if (title) title.textContent = `Trends — ${note}`;
   if (!main) return;
   main.replaceChildren();
-  if (list.length === 0) {
-    const p = document.createElement('p');
-    p.className = 'empty';
-    p.textContent = 'No timepoints with values to plot yet.';
-    main.append(p);
+  if (closed) main.append(paragraph('notice', 'This note is closed: these are its trends as they were when it closed. Go to a timepoint to open it again.'));
+  const empty = emptyMessage(list);
+  if (empty !== null) {
+    main.append(paragraph('empty', empty));
     return;
   }
   const { xs, hours } = xValues(list);
@@ -98,10 +115,56 @@ function render(list: readonly TrendPoint[], note: string): void {
       const idx = chart.cursor.idx;
       if (idx === null || idx === undefined) return;
       const point = points[idx];
-      if (point) vscode.postMessage({ type: 'reveal', line: point.line });
+      if (point) reveal(point.line);
     });
     charts.push(chart);
   }
+  main.append(table(list));
+}
+
+/** The values as a table, with a button per timepoint to go to it. */
+function table(list: readonly TrendPoint[]): HTMLElement {
+  const { headings, rows } = timepointTable(list);
+  const section = document.createElement('section');
+  section.className = 'values';
+  section.setAttribute('aria-label', 'Values by timepoint');
+  const h = document.createElement('h2');
+  h.textContent = 'Values by timepoint';
+  const t = document.createElement('table');
+  const caption = document.createElement('caption');
+  caption.textContent = 'Each timepoint\'s button moves the editor to it. * uses a value carried from an earlier timepoint.';
+  const head = document.createElement('tr');
+  for (const text of ['Timepoint', ...headings]) {
+    const th = document.createElement('th');
+    th.scope = 'col';
+    th.textContent = text;
+    head.append(th);
+  }
+  const thead = document.createElement('thead');
+  thead.append(head);
+  const tbody = document.createElement('tbody');
+  for (const row of rows) {
+    const tr = document.createElement('tr');
+    const th = document.createElement('th');
+    th.scope = 'row';
+    const button = document.createElement('button');
+    button.type = 'button';
+    button.className = 'go';
+    button.textContent = row.label;
+    button.title = `Go to line ${row.line + 1}`;
+    button.addEventListener('click', () => reveal(row.line));
+    th.append(button);
+    tr.append(th);
+    for (const cell of row.cells) {
+      const td = document.createElement('td');
+      td.textContent = cell;
+      tr.append(td);
+    }
+    tbody.append(tr);
+  }
+  t.append(caption, thead, tbody);
+  section.append(h, t);
+  return section;
 }
 
 function labelAt(x: number, xs: readonly number[]): string {
@@ -110,15 +173,28 @@ function labelAt(x: number, xs: readonly number[]): string {
   return p ? p.label : String(x);
 }
 
+function showText(className: string, text: string): void {
+  for (const c of charts.splice(0)) c.destroy();
+  points = [];
+  const main = document.getElementById('charts');
+  if (main) main.replaceChildren(paragraph(className, text));
+}
+
 window.addEventListener('message', (event: MessageEvent<ToWebview>) => {
   const m = event.data;
+  received = true;
   if (m.type === 'trends') {
     lastNote = m.note;
-    render(m.points, m.note);
+    lastClosed = m.closed;
+    // Kept by VS Code across a reload of the window, for the serializer to reopen this note.
+    vscode.setState({ uri: m.uri });
+    render(m.points, m.note, m.closed);
   }
-  if (m.type === 'error') {
-    const main = document.getElementById('charts');
-    if (main) main.textContent = `Trends could not be loaded: ${m.message}`;
+  if (m.type === 'error') showText('error', `Trends could not be loaded: ${m.message}`);
+  if (m.type === 'notice') {
+    const title = document.getElementById('title');
+    if (title) title.textContent = 'Trends';
+    showText('empty', m.message);
   }
 });
 
@@ -132,8 +208,11 @@ window.addEventListener('resize', () => {
   }, 100);
 });
 
-// Redraw with the new colours when the editor theme changes (VS Code swaps the body's classes).
-let lastNote = '';
-new MutationObserver(() => render(points, lastNote)).observe(document.body, { attributes: true, attributeFilter: ['class'] });
+// Redraw with the new colours when the editor theme changes: VS Code swaps the body's classes
+// (light, dark, high contrast) and its theme attributes, and sets the colours as CSS variables on
+// the root element (another theme of the same kind changes only those).
+const redraw = () => { if (received && charts.length > 0) render(points, lastNote, lastClosed); };
+new MutationObserver(redraw).observe(document.body, { attributes: true, attributeFilter: ['class', 'data-vscode-theme-id', 'data-vscode-theme-kind'] });
+new MutationObserver(redraw).observe(document.documentElement, { attributes: true, attributeFilter: ['style'] });
 
 vscode.postMessage({ type: 'ready' });

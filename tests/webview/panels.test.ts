@@ -2,7 +2,7 @@
 // the points give them (the page converts nothing). Points are written by hand here; what the
 // core gives for a note is tested in tests/core/trends.test.ts.
 import { describe, expect, it } from 'vitest';
-import { legendText, panelLayouts } from '../../client/webview/panels';
+import { emptyMessage, legendText, panelLayouts, timepointTable } from '../../client/webview/panels';
 import type { TrendPoint } from '../../server/src/protocol';
 
 function point(values: TrendPoint['values'], line = 0): TrendPoint {
@@ -43,5 +43,34 @@ describe('trend panels', () => {
     expect(legendText(0.28 * 100, '%')).toBe('28 %');
     expect(legendText(211.6, 'mmHg')).toBe('211.6 mmHg');
     expect(legendText(null, 'kPa')).toBe('—');
+  });
+});
+
+describe('when there is nothing to draw', () => {
+  it('says the note has no timepoint yet', () => {
+    expect(emptyMessage([])).toMatch(/^This note has no timepoints yet/);
+  });
+
+  it('says what the view draws when the timepoints have none of it (vital signs only), instead of an empty page', () => {
+    const message = emptyMessage([point({}), point({}, 4)]);
+    expect(message).toMatch(/^No values to plot yet: the trend view draws PaO2, P\/F, PaCO2, pH, SpO2, FiO2, PEEP, ΔP and Cstat/);
+    expect(emptyMessage(kpaPoints)).toBeNull();
+  });
+});
+
+describe('the table of values by timepoint', () => {
+  it('has a row per timepoint with its line, and a column per plotted series with its unit', () => {
+    const table = timepointTable(kpaPoints);
+    expect(table.headings).toEqual(['PaO2 (kPa)', 'P/F (kPa)', 'PaCO2 (kPa)', 'pH', 'FiO2 (%)']);
+    expect(table.rows).toEqual([
+      { label: 'line 3', line: 2, cells: ['7.9', '28.2', '9.1', '7.28', '28'] },
+      { label: 'line 7', line: 6, cells: ['8.3', '27.7', '7.9', '7.34', '30'] },
+    ]);
+  });
+
+  it('marks a value that used a carried input, and a missing one with a dash', () => {
+    const carried: TrendPoint = { ...point({ fio2: { value: 40, unit: '%' } }, 5), carried: ['fio2'] };
+    const table = timepointTable([point({ pao2: { value: 80, unit: 'mmHg' } }, 1), carried]);
+    expect(table.rows.map((r) => r.cells)).toEqual([['80', '—'], ['—', '40*']]);
   });
 });

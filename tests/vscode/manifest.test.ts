@@ -1,0 +1,112 @@
+// The extension's contributions in package.json, against what the code does with them: every
+// setting is read by the server with the same type, range, choices and default; every command is
+// registered, in the palette under Pneumark:, and offered only where it can do something.
+import { readFileSync } from 'node:fs';
+import { describe, expect, it } from 'vitest';
+import { z } from 'zod';
+import { HINT_CATEGORIES } from '../../server/src/core/service/types';
+import { DEFAULT_SETTINGS, settingsSchema } from '../../server/src/core/settings';
+import { clientSettingsSchema, DEFAULT_CLIENT_SETTINGS, readClientSettings } from '../../server/src/server/settings';
+
+interface Property {
+  type: string;
+  default: unknown;
+  scope?: string;
+  enum?: unknown[];
+  enumDescriptions?: string[];
+  minimum?: number;
+  maximum?: number;
+  description?: string;
+  markdownDescription?: string;
+}
+const manifest = JSON.parse(readFileSync('package.json', 'utf8')) as {
+  contributes: {
+    commands: { command: string; title: string; category: string; enablement?: string }[];
+    menus: Record<string, { command: string; when?: string }[]>;
+    configuration: { properties: Record<string, Property> };
+  };
+};
+const properties = manifest.contributes.configuration.properties;
+const extensionSource = ['client/src/extension.ts'].map((f) => readFileSync(f, 'utf8')).join('\n');
+
+/** The setting's schema on the server, by its name in VS Code. */
+function serverSchema(name: string): z.ZodType | 'client' | null {
+  const key = name.replace(/^pneumark\./, '');
+  if (key in settingsSchema.shape) return settingsSchema.shape[key as keyof typeof settingsSchema.shape].unwrap() as z.ZodType;
+  if (key === 'debounceMs' || key === 'maxNoteSizeKb') return clientSettingsSchema.shape[key].unwrap() as z.ZodType;
+  if (key.startsWith('hints.') && (HINT_CATEGORIES as readonly string[]).includes(key.slice(6))) return z.boolean();
+  // Read by the language client itself (vscode-languageclient reads `<id>.trace.server`).
+  if (key === 'trace.server') return 'client';
+  return null;
+}
+
+/** `{ "gasUnit": "kPa" }` from `pneumark.gasUnit`, `{ hints: { mechanics: false } }` from `pneumark.hints.mechanics`. */
+function asSection(name: string, value: unknown): Record<string, unknown> {
+  const key = name.replace(/^pneumark\./, '');
+  return key.startsWith('hints.') ? { hints: { [key.slice(6)]: value } } : { [key]: value };
+}
+
+describe('the contributed settings', () => {
+  it('are each read by the server or the language client', () => {
+    for (const name of Object.keys(properties)) expect(serverSchema(name), name).not.toBeNull();
+    // And every setting the server reads is contributed.
+    for (const key of [...Object.keys(settingsSchema.shape), 'debounceMs', 'maxNoteSizeKb', ...HINT_CATEGORIES.map((c) => `hints.${c}`)]) expect(properties[`pneumark.${key}`], key).toBeDefined();
+  });
+
+  it('have the server\'s defaults, choices and ranges', () => {
+    for (const [name, p] of Object.entries(properties)) {
+      const schema = serverSchema(name);
+      if (schema === 'client' || schema === null) continue;
+      const key = name.replace(/^pneumark\./, '');
+      const serverDefault = key.startsWith('hints.') ? key !== 'hints.transport'
+        : key in DEFAULT_SETTINGS ? DEFAULT_SETTINGS[key as keyof typeof DEFAULT_SETTINGS]
+          : DEFAULT_CLIENT_SETTINGS[key as 'debounceMs' | 'maxNoteSizeKb'];
+      expect(p.default, name).toEqual(serverDefault);
+      expect(schema.safeParse(p.default).success, name).toBe(true);
+      for (const choice of p.enum ?? []) expect(schema.safeParse(choice).success, `${name}: ${String(choice)}`).toBe(true);
+      if (p.minimum !== undefined) {
+        expect(schema.safeParse(p.minimum).success, name).toBe(true);
+        expect(schema.safeParse(p.minimum - 0.01).success, name).toBe(false);
+      }
+      if (p.maximum !== undefined) {
+        expect(schema.safeParse(p.maximum).success, name).toBe(true);
+        expect(schema.safeParse(p.maximum + 0.01).success, name).toBe(false);
+      }
+      // The value as VS Code sends it (a nested section) is taken by the server without a problem.
+      expect(readClientSettings(asSection(name, p.default)).problem, name).toBeNull();
+    }
+  });
+
+  it('each say what they do in words, with a description for every choice', () => {
+    for (const [name, p] of Object.entries(properties)) {
+      const text = p.markdownDescription ?? p.description ?? '';
+      expect(text.length, name).toBeGreaterThan(30);
+      expect(p.description !== undefined && p.markdownDescription !== undefined, `${name} has two descriptions`).toBe(false);
+      if (p.enum) expect(p.enumDescriptions?.length, name).toBe(p.enum.length);
+      expect(p.scope, name).toMatch(/^(resource|window)$/);
+    }
+    // Thresholds are in mmHg whatever the note's unit: they say so, with the kPa value.
+    expect(properties['pneumark.hypoxaemiaBelowMmhg']?.markdownDescription).toMatch(/in mmHg, also for notes written in kPa \(60 mmHg is 8\.0 kPa\)/);
+  });
+});
+
+describe('the contributed commands', () => {
+  const commands = manifest.contributes.commands;
+
+  it('are each registered by the extension and listed under Pneumark:', () => {
+    for (const c of commands) {
+      expect(c.category, c.command).toBe('Pneumark');
+      expect(extensionSource, c.command).toContain(`registerCommand('${c.command}'`);
+    }
+    for (const [, id] of extensionSource.matchAll(/registerCommand\('([^']+)'/g)) expect(commands.map((c) => c.command)).toContain(id);
+  });
+
+  it('that change a note are offered only in a Pneumark note that can be changed', () => {
+    const palette = new Map(manifest.contributes.menus['commandPalette']?.map((m) => [m.command, m.when]));
+    for (const id of ['pneumark.convertNoteUnits', 'pneumark.insertTimepoint']) {
+      expect(commands.find((c) => c.command === id)?.enablement, id).toBe('editorLangId == pneumark && !editorReadonly');
+      expect(palette.get(id), id).toBe('editorLangId == pneumark && !editorReadonly');
+    }
+    expect(palette.get('pneumark.showTrends')).toMatch(/editorLangId == pneumark/);
+  });
+});
