@@ -170,6 +170,13 @@ describe('codes that fit the value', () => {
     expect(validator.validate(b, true)).toEqual([]);
   });
 
+  it('a serum value written as tco2 is total CO2, so it does not carry the bicarbonate code (1963-8)', () => {
+    const b = toFhirBundle('a.pneu', checked('@ day 1 08:00\nlabs tco2 25\n@ +1h\nlabs hco3 24'), noAnchor);
+    expect(codeOf(b, 'obs-0-hco3-serum')).toEqual({ text: 'Bicarbonate (serum)' });
+    expect(byId(b, 'obs-0-hco3-serum')?.valueQuantity?.value).toBe(25);
+    expect(codeOf(b, 'obs-1-hco3-serum')?.coding?.map((c) => c.code)).toEqual(['1963-8']);
+  });
+
   it('the registry codes left out, by field and section, are exactly these (a change shows in review)', () => {
     const dropped: string[] = [];
     for (const f of FIELDS) {

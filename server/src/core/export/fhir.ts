@@ -21,7 +21,8 @@
  * value in mmol/L (nor `[Moles/volume]` on one in g/dL), an arterial-blood code never on a value
  * from a `vbg` line nor a venous one on an `abg` line, and a serum-or-plasma code never on a value
  * from a blood gas (`abg`, `vbg`), which is measured in whole blood; and the oxygen flow code
- * (3151-8) never on the flow of a high-flow device (`hfnc`), which is the total gas flow. A value whose field has no
+ * (3151-8) never on the flow of a high-flow device (`hfnc`), which is the total gas flow, nor the
+ * bicarbonate code on a value written as `tco2` (total CO2). A value whose field has no
  * code, or whose code does not fit, is still exported, with `code.text` alone and no coding: a
  * wrong code is worse than none. A code marked `fromMemory` in the registry was recalled, not read
  * from the LOINC table.
@@ -169,12 +170,25 @@ export function isObservedField(field: FieldDef): boolean {
   return field.kind !== 'word' && section !== undefined && OBSERVED_SECTIONS.has(section);
 }
 
+/** What else decides whether a code fits: the key the note wrote, the oxygen device in force. */
+export interface WrittenAs {
+  /** The key as written, lower case (`tco2` for a serum bicarbonate written as total CO2). */
+  readonly key: string | null;
+  /** The oxygen device in force at the timepoint (`hfnc`, `cannula`, …). */
+  readonly device: string | null;
+}
+
+const NOTHING_MORE: WrittenAs = { key: null, device: null };
+
 /**
  * Why a LOINC code does not fit a value of `field` stated in `section`, read from what the code's
  * name says (its property in brackets, its specimen after `in`); null when nothing contradicts it.
  */
-export function loincMismatch(loinc: LoincCode, field: FieldDef, section: SectionId, device: string | null = null): string | null {
+export function loincMismatch(loinc: LoincCode, field: FieldDef, section: SectionId, written: WrittenAs = NOTHING_MORE): string | null {
   const name = loinc.display;
+  const device = written.device;
+  // `tco2` is total CO2 (bicarbonate plus dissolved CO2 and carbamino CO2), which LOINC codes apart from bicarbonate.
+  if (/^Bicarbonate\b/.test(name) && written.key === 'tco2') return `${loinc.code} is bicarbonate, the value was written as total CO2 (tco2)`;
   // A high-flow device's flow is the total gas flow (air and oxygen blended to the FiO2), not the oxygen flow.
   if (/^Inhaled oxygen flow rate\b/.test(name) && device === 'hfnc') return `${loinc.code} is the oxygen flow, the value is the total gas flow of a high-flow device`;
   if (name.includes('[Mass/volume]') && field.dimension !== 'mass-concentration') return `${loinc.code} is a mass concentration, the value is not`;
@@ -185,13 +199,10 @@ export function loincMismatch(loinc: LoincCode, field: FieldDef, section: Sectio
   return null;
 }
 
-/**
- * The LOINC code an Observation of `field` stated in `section` carries, or null (see the header
- * comment); `device` is the oxygen device in force at the timepoint (`hfnc`, `cannula`, …).
- */
-export function fhirLoinc(field: FieldDef, section: SectionId, device: string | null = null): LoincCode | null {
+/** The LOINC code an Observation of `field` stated in `section` carries, or null (see the header comment). */
+export function fhirLoinc(field: FieldDef, section: SectionId, written: WrittenAs = NOTHING_MORE): LoincCode | null {
   const loinc = loincFor(field, section);
-  return loinc && loincMismatch(loinc, field, section, device) === null ? loinc : null;
+  return loinc && loincMismatch(loinc, field, section, written) === null ? loinc : null;
 }
 
 // Blood pressure components: LOINC codes from memory (the registry holds only the panel code).
@@ -292,7 +303,7 @@ interface Place {
 /** The Observation of one stated value; null when the field is not exported or has no usable number. */
 function fieldObservation(field: FieldDef, input: InputValue, place: Place): Omit<FhirObservation, 'id'> | null {
   // A ventilator's FiO2 is a setting with a code of its own; a code that does not fit is left out.
-  const loinc = fhirLoinc(field, input.stated.section, place.device);
+  const loinc = fhirLoinc(field, input.stated.section, { key: input.stated.item.keyName, device: place.device });
   const unitId = input.stated.unit;
   if (!isObservedField(field) || !input.stated.usable || unitId === null) return null;
   const base = {
