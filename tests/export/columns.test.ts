@@ -66,6 +66,17 @@ describe('the column list', () => {
   });
 });
 
+describe('descriptions of derived columns', () => {
+  it('say how the value is made, never a formula that is only the value itself (`{PB}`)', () => {
+    for (const c of exportColumns().filter((x) => x.kind === 'derived')) {
+      expect(c.description, c.name).not.toMatch(/derived: \{[^}]*\}\.$/);
+    }
+    expect(exportColumns().find((c) => c.name === 'barometric_derived_mmHg')?.description).toBe(
+      'Barometric pressure (PB) the calculations use: as stated on a place line, else estimated from the altitude (the barometricModel setting), else 760 mmHg (sea level).',
+    );
+  });
+});
+
 describe('unit slugs', () => {
   it.each([
     ['mmHg', 'mmHg'], ['L/min', 'L_min'], ['/min', 'per_min'], ['%sat', 'pct'], ['%', 'pct'], ['cmH2O/L/s', 'cmH2O_L_s'],

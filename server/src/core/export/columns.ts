@@ -40,6 +40,7 @@
 import type { NoteResult } from '../check-note';
 import type { InputValue, StatedValue, Timepoint } from '../analysis/model';
 import type { DerivedValue } from '../derive/model';
+import { SEA_LEVEL_MMHG } from '../derive/atmosphere';
 import { DERIVED } from '../derive/registry';
 import { FIELDS, type FieldDef } from '../fields/registry';
 import type { Finding } from '../types';
@@ -178,6 +179,14 @@ function fieldColumns(field: FieldDef): Column[] {
   }];
 }
 
+/**
+ * Descriptions of derived values whose formula is the value itself (`{PB}`), which would say
+ * nothing: where the value comes from instead.
+ */
+const WHERE_FROM: Readonly<Record<string, string>> = {
+  barometric: `Barometric pressure (PB) the calculations use: as stated on a place line, else estimated from the altitude (the barometricModel setting), else ${SEA_LEVEL_MMHG} mmHg (sea level).`,
+};
+
 function derivedColumns(def: (typeof DERIVED)[number], fieldIds: ReadonlySet<string>): Column[] {
   const id = fieldIds.has(def.id) ? `${def.id}_derived` : def.id;
   const slug = unitSlug(def.unit);
@@ -199,7 +208,7 @@ function derivedColumns(def: (typeof DERIVED)[number], fieldIds: ReadonlySet<str
   return [{
     ...base,
     name: bare ? id : `${id}_${slug}`,
-    description: `${def.label} (${def.short}), derived: ${def.formula}.`,
+    description: WHERE_FROM[def.id] ?? `${def.label} (${def.short}), derived: ${def.formula}.`,
     part: null,
     cell: (c) => finite(c.derived.get(def.id)?.value),
   }];
