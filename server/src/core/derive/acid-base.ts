@@ -12,7 +12,7 @@ import {
   type AcidBaseClassification,
 } from '../physiology';
 import { defineDerived, type DeriveContext, type Outcome, type Term } from './context';
-import { formatNumber } from '../util/format';
+import { decimalsAgainst, formatNumber } from '../util/format';
 import type { Kept } from '../util/small-store';
 
 /** Serum bicarbonate when the laboratory gave one, else the gas analyser's. */
@@ -46,6 +46,12 @@ const CLASSIFICATION: Kept<AcidBaseClassification | null, DeriveContext> = {
 function withheldForInconsistentGas(cls: AcidBaseClassification): Outcome | null {
   if (cls.consistency.consistent) return null;
   return { kind: 'na', reason: `the pH, PaCO2 and HCO3 stated do not fit together (pH and PaCO2 give HCO3 ${formatNumber(cls.consistency.calculatedHco3MmolL, 1)} mmol/L; see PN402), so no compensation is worked out from them` };
+}
+
+/** Decimals (from `decimals`) that keep `observed` on its side of both ends of an expected range, as the reading shows them. */
+function rangeDecimals(range: { readonly low: number; readonly high: number }, decimals: number, observed: number | undefined): number {
+  if (observed === undefined) return decimals;
+  return Math.max(decimalsAgainst(range.low, decimals, observed), decimalsAgainst(range.high, decimals, observed));
 }
 
 export const hco3Calculated = defineDerived({
@@ -160,11 +166,11 @@ export const paco2Expected = defineDerived({
     if (withheld) return withheld;
     if (cls.primary === 'metabolic-acidosis') {
       const r = expectedPaco2MetabolicAcidosis(hco3.value);
-      return r ? c.value(r.centre, [hco3], { range: r, notes: ["Winters' formula"] }) : c.value(null, []);
+      return r ? c.value(r.centre, [hco3], { range: r, notes: ["Winters' formula"], decimals: rangeDecimals(r, 0, c.field('paco2')?.value) }) : c.value(null, []);
     }
     if (cls.primary === 'metabolic-alkalosis') {
       const r = expectedPaco2MetabolicAlkalosis(hco3.value);
-      return r ? c.value(r.centre, [hco3], { range: r, formula: '40 + 0.7 × ({HCO3} − 24) ± 2' }) : c.value(null, []);
+      return r ? c.value(r.centre, [hco3], { range: r, formula: '40 + 0.7 × ({HCO3} − 24) ± 2', decimals: rangeDecimals(r, 0, c.field('paco2')?.value) }) : c.value(null, []);
     }
     return { kind: 'na', reason: 'the primary disorder is not metabolic' };
   },
@@ -189,7 +195,7 @@ function respiratoryExpected(chronicity: 'acute' | 'chronic') {
       if (withheld) return withheld;
       if (cls.primary !== 'respiratory-acidosis' && cls.primary !== 'respiratory-alkalosis') return { kind: 'na', reason: 'the primary disorder is not respiratory' };
       const r = expectedHco3Respiratory(paco2.value, chronicity);
-      return r ? c.value((r.low + r.high) / 2, [paco2], { range: r, notes: ['span of published coefficients, ± 2 mmol/L'] }) : c.value(null, []);
+      return r ? c.value((r.low + r.high) / 2, [paco2], { range: r, notes: ['span of published coefficients, ± 2 mmol/L'], decimals: rangeDecimals(r, 0, c.field('hco3')?.value) }) : c.value(null, []);
     },
   });
 }

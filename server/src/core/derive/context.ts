@@ -21,6 +21,12 @@ export interface ValueExtras {
   readonly notes?: readonly string[] | undefined;
   readonly estimate?: boolean | undefined;
   readonly formula?: string | undefined;
+  /**
+   * Decimals for this value instead of the definition's: more where the value (or a range's ends)
+   * would otherwise round onto the other side of what it is shown beside (an expected PaCO2 of
+   * 21.6–25.6 mmHg beside a PaCO2 of 26 shows so, not as 22–26).
+   */
+  readonly decimals?: number | undefined;
 }
 
 const NO_EXTRAS: ValueExtras = {};
@@ -229,7 +235,7 @@ export class DeriveContext {
 
   value(value: number | null, terms: readonly (Term | null)[], extra: ValueExtras = NO_EXTRAS): Outcome {
     if (value === null || !Number.isFinite(value)) return NOT_IN_DOMAIN;
-    return { kind: 'value', value, terms: withoutNulls(terms), range: extra.range, notes: extra.notes, estimate: extra.estimate, formula: extra.formula };
+    return { kind: 'value', value, terms: withoutNulls(terms), range: extra.range, notes: extra.notes, estimate: extra.estimate, formula: extra.formula, decimals: extra.decimals };
   }
 
   /** What to add to get another derived value (its own missing inputs), for messages. */
@@ -355,7 +361,7 @@ class ComputedValue implements DerivedValue {
     this.category = def.category;
     this.value = outcome.value;
     this.unit = def.unit;
-    this.decimals = def.decimals;
+    this.decimals = outcome.decimals ?? def.decimals;
     this.range = outcome.range ?? null;
     this.formula = outcome.formula ? shownFormula(outcome.formula) : def.shownFormula;
     this.inputs = outcome.terms;

@@ -14,7 +14,8 @@ import {
   roxIndex,
   sfRatio,
 } from '../physiology';
-import { defineDerived, type Term } from './context';
+import { defineDerived, type DeriveContext, type Term } from './context';
+import { decimalsAgainst } from '../util/format';
 import { SEA_LEVEL_MMHG } from './atmosphere';
 
 /** PaO2 above alveolar PO2 by more than this (mmHg) is impossible rather than rounding. */
@@ -73,7 +74,9 @@ export const aaGradientDef = defineDerived({
     if (g === null) return c.value(null, []);
     if (g < -ALVEOLAR_ROUNDING_MMHG) return { kind: 'na', reason: `PaO2 ${Math.round(pa.value)} mmHg is above the alveolar PO2 ${Math.round(pA.value)} mmHg that the stated FiO2 and pressure allow (see PN401)` };
     if (g < 0) return c.value(0, [pA, pa], { notes: ['PaO2 within rounding of the alveolar PO2: gradient shown as 0'] });
-    return c.value(g, [pA, pa]);
+    // Shown beside its upper normal for age: with the decimals that keep it on its side of it.
+    const upper = upperNormalFor(c);
+    return c.value(g, [pA, pa], upper === null ? undefined : { decimals: decimalsAgainst(g, 0, upper) });
   },
 });
 
@@ -91,6 +94,12 @@ const AGE_RULE_TEXT = {
   mellemgaard: '2.5 + 0.21 × {age}',
 } as const;
 
+/** The upper normal A–a gradient for the age in force, by the rule the settings choose; null without an age. */
+function upperNormalFor(c: DeriveContext): number | null {
+  const age = c.field('age', 'age');
+  return age ? aaGradientUpperNormal(age.value, c.settings.aaGradientRule) : null;
+}
+
 export const aaGradientUpperNormalDef = defineDerived({
   id: 'aa_gradient_upper_normal',
   label: 'A–a gradient, upper normal for age',
@@ -104,7 +113,11 @@ export const aaGradientUpperNormalDef = defineDerived({
   compute(c) {
     const age = c.field('age', 'age');
     if (!age) return c.missing([age, 'age (patient line)']);
-    return c.value(aaGradientUpperNormal(age.value, c.settings.aaGradientRule), [age], { formula: AGE_RULE_TEXT[c.settings.aaGradientRule], notes: ['breathing air at sea level; the gradient widens on oxygen'] });
+    const upper = aaGradientUpperNormal(age.value, c.settings.aaGradientRule);
+    // Shown beside the gradient: with the decimals that keep the gradient on its side of it (A–a 11.8 above 11.5, not 12 and 12).
+    const gradient = c.derivedValue('aa_gradient')?.value;
+    const decimals = upper === null || gradient === undefined ? undefined : decimalsAgainst(upper, 0, gradient);
+    return c.value(upper, [age], { formula: AGE_RULE_TEXT[c.settings.aaGradientRule], notes: ['breathing air at sea level; the gradient widens on oxygen'], decimals });
   },
 });
 
