@@ -155,6 +155,22 @@ describe('files', () => {
     expect(run(log).artifacts).toEqual([{ location: { uri: 'a.pneu', uriBaseId: 'SRCROOT' } }, { location: { uri: 'b.pneu', uriBaseId: 'SRCROOT' } }]);
   });
 
+  it('problems of a settings file become configuration notifications, and the execution is not successful', () => {
+    const log = toSarifLog([{ path: 'a.pneu', result: checked('@ day 1 08:00\nvitals hr 90'), problem: null }], {
+      toolVersion: '0.1.0',
+      configurationProblems: [{ path: 'pneumark.config.json', line: 1, column: 2, message: '`bogus` is not a setting. Pneumark uses its defaults until this is fixed.' }],
+    });
+    const invocation = run(log).invocations?.[0];
+    expect(invocation?.executionSuccessful).toBe(false);
+    expect(invocation?.toolExecutionNotifications).toBeUndefined();
+    expect(invocation?.toolConfigurationNotifications).toEqual([{
+      level: 'error',
+      message: { text: '`bogus` is not a setting. Pneumark uses its defaults until this is fixed.' },
+      locations: [{ physicalLocation: { artifactLocation: { uri: 'pneumark.config.json', uriBaseId: 'SRCROOT' }, region: { startLine: 1, startColumn: 2 } } }],
+    }]);
+    expect(validate(log).errors).toEqual([]);
+  });
+
   it('a run where every file was read is successful, with no notifications', () => {
     const invocation = run(toSarifLog([{ path: 'a.pneu', result: checked('@ day 1 08:00\nvitals hr 90'), problem: null }])).invocations?.[0];
     expect(invocation).toEqual({ executionSuccessful: true });

@@ -24,7 +24,8 @@
  *   Every file given, read or not, is listed once in `artifacts`; locations name its index.
  * - A note that could not be read becomes a tool execution notification (level error) on the
  *   invocation, and `executionSuccessful` is false when there is any: the run did not check
- *   everything it was asked to (the CLI exits with 2 then).
+ *   everything it was asked to (the CLI exits with 2 then). A problem of a settings file given in
+ *   `configurationProblems` becomes a tool configuration notification and makes it false too.
  */
 import type * as Sarif from 'sarif';
 import type { NoteResult } from '../check-note';
@@ -47,6 +48,21 @@ export interface SarifFile {
 export interface SarifOptions {
   /** The version of pneumark that produced the log; left out when not given. */
   readonly toolVersion: string;
+  /**
+   * Problems of the settings files (`pneumark.config.json`) the run read: each becomes a tool
+   * configuration notification (level error) and makes the execution unsuccessful, as the CLI's
+   * exit code 2 does, so a log uploaded from CI does not claim a clean run on other settings than
+   * the team wrote.
+   */
+  readonly configurationProblems?: readonly SarifConfigurationProblem[];
+}
+
+/** One problem of a settings file: its path, and the line and column (1-based) when known. */
+export interface SarifConfigurationProblem {
+  readonly path: string;
+  readonly line: number | null;
+  readonly column: number | null;
+  readonly message: string;
 }
 
 export const SARIF_SCHEMA = 'https://json.schemastore.org/sarif-2.1.0.json';
@@ -183,9 +199,16 @@ export function sarifLogParts(files: readonly SarifFile[], options?: SarifOption
     }
   }
 
+  const configuration: Sarif.Notification[] = (options?.configurationProblems ?? []).map((p) => {
+    const location = artifactLocationOf(p.path);
+    const region = p.line === null ? {} : { region: { startLine: p.line, ...(p.column === null ? {} : { startColumn: p.column }) } };
+    return { level: 'error', message: { text: p.message }, locations: [{ physicalLocation: { artifactLocation: location, ...region } }] };
+  });
+
   const invocation: Sarif.Invocation = {
-    executionSuccessful: notifications.length === 0,
+    executionSuccessful: notifications.length === 0 && configuration.length === 0,
     ...(notifications.length ? { toolExecutionNotifications: notifications } : {}),
+    ...(configuration.length ? { toolConfigurationNotifications: configuration } : {}),
   };
 
   const log: Sarif.Log = {
