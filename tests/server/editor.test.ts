@@ -1,12 +1,12 @@
 // Protocol-level tests of editor features: formatting (size limit, ranges), folding regions,
 // settings (pushed, key by key), completion inside a word, the diagnostics a quick fix claims,
 // the size limit in bytes, unit conversion of an empty note, and pneumark.config.json errors.
-import { mkdtempSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, unlinkSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { CodeAction, CompletionItem, Diagnostic, FoldingRange, InsertReplaceEdit, TextEdit } from 'vscode-languageserver-protocol';
+import type { CodeAction, CompletionItem, Diagnostic, FoldingRange, InlayHint, InsertReplaceEdit, TextEdit } from 'vscode-languageserver-protocol';
 import { applyEdits } from '../../server/src/core/service/text-edits';
 import { startClient, type LspClient } from './lsp-client';
 
@@ -171,5 +171,52 @@ describe('pneumark.config.json', () => {
     const p = await client.diagnostics(configUri);
     expect(p.diagnostics[0]?.message).toMatch(/not valid JSON \(`kPa` is not a value: text must be in double quotes/);
     expect(p.diagnostics[0]?.range).toEqual({ start: { line: 1, character: 13 }, end: { line: 1, character: 16 } });
+  });
+
+  it('clears the problems of a file that is deleted', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'pneumark-config-deleted-'));
+    const file = join(dir, 'pneumark.config.json');
+    writeFileSync(file, '{ "gasUnit": "kpaa" }\n');
+    const configUri = pathToFileURL(file).toString();
+    const noteUri = client.open(join(dir, 'note.pneu'), '@ 08:00\nabg pco2 40\n');
+    expect((await client.diagnostics(configUri)).diagnostics).toHaveLength(1);
+    await client.diagnostics(noteUri);
+    // Requests about the note do not send the file's problems again.
+    const sent = client.published.filter((p) => p.uri === configUri).length;
+    await client.connection.sendRequest('textDocument/hover', { textDocument: { uri: noteUri }, position: { line: 1, character: 5 } });
+    await client.connection.sendRequest('textDocument/inlayHint', { textDocument: { uri: noteUri }, range: { start: { line: 0, character: 0 }, end: { line: 2, character: 0 } } });
+    expect(client.published.filter((p) => p.uri === configUri)).toHaveLength(sent);
+    unlinkSync(file);
+    const count = client.published.length;
+    await client.connection.sendNotification('workspace/didChangeWatchedFiles', { changes: [{ uri: configUri, type: 3 }] });
+    const cleared = await client.diagnostics(configUri, (p) => client.published.indexOf(p) >= count);
+    expect(cleared.diagnostics).toEqual([]);
+    // The note is analysed again, with the editor's settings.
+    await client.diagnostics(noteUri, (p) => client.published.indexOf(p) >= count);
+  });
+});
+
+describe('inlay hints after a change of settings', () => {
+  it('asks the editor to show them again, and they follow the new settings', async () => {
+    const refreshing = await startClient({}, { refreshHints: true });
+    try {
+      const text = '@ 08:00\nabg       7.40/40/90/24, fio2 0.4\n';
+      const uri = refreshing.open(path('hints-refresh.pneu'), text);
+      await refreshing.diagnostics(uri);
+      const hints = async () => (await refreshing.connection.sendRequest<InlayHint[]>('textDocument/inlayHint', { textDocument: { uri }, range: { start: { line: 0, character: 0 }, end: { line: 2, character: 0 } } })).map((h) => h.label);
+      expect((await hints()).join(' ')).toMatch(/^P\/F 225/);
+      const before = refreshing.hintRefreshes();
+      refreshing.settings = { hints: { oxygenation: false } };
+      await refreshing.connection.sendNotification('workspace/didChangeConfiguration', { settings: null });
+      await refreshing.hintRefresh(before);
+      expect((await hints()).join(' ')).not.toMatch(/P\/F/);
+      const again = refreshing.hintRefreshes();
+      refreshing.settings = {};
+      await refreshing.connection.sendNotification('workspace/didChangeConfiguration', { settings: null });
+      await refreshing.hintRefresh(again);
+      expect((await hints()).join(' ')).toMatch(/^P\/F 225/);
+    } finally {
+      await refreshing.close();
+    }
   });
 });

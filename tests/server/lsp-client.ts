@@ -25,6 +25,10 @@ export interface LspClient {
   readonly published: PublishDiagnosticsParams[];
   /** Every `pneumark/analysed` notification received, in order. */
   readonly analysed: AnalysedParams[];
+  /** How many times the server asked the client to refresh its inlay hints. */
+  readonly hintRefreshes: () => number;
+  /** Resolves once the server has asked for a refresh of inlay hints more than `after` times in all. */
+  hintRefresh(after: number, timeoutMs?: number): Promise<void>;
   stderr: string;
   open(path: string, text: string, version?: number): string;
   change(uri: string, text: string, version: number): void;
@@ -42,6 +46,8 @@ export interface ClientOptions {
   readonly pullConfiguration?: boolean;
   /** `textDocument.completion` client capabilities (none by default). */
   readonly completion?: Record<string, unknown>;
+  /** Whether the client can be asked to refresh its inlay hints (`workspace.inlayHint.refreshSupport`; default false). */
+  readonly refreshHints?: boolean;
 }
 
 export async function startClient(settings: Record<string, unknown> = {}, options: ClientOptions = {}): Promise<LspClient> {
@@ -81,12 +87,26 @@ export async function startClient(settings: Record<string, unknown> = {}, option
     return params.items.map(() => client.settings);
   });
   connection.onRequest('client/registerCapability', () => null);
+  let refreshes = 0;
+  const refreshWaiters: { after: number; resolve: () => void }[] = [];
+  connection.onRequest('workspace/inlayHint/refresh', () => {
+    refreshes++;
+    for (const w of refreshWaiters.filter((x) => refreshes > x.after)) {
+      refreshWaiters.splice(refreshWaiters.indexOf(w), 1);
+      w.resolve();
+    }
+    return null;
+  });
   connection.listen();
   const initialize = await connection.sendRequest<InitializeResult>('initialize', {
     processId: process.pid,
     rootUri: null,
     capabilities: {
-      workspace: { configuration: options.pullConfiguration ?? true, didChangeConfiguration: { dynamicRegistration: options.pullConfiguration ?? true } },
+      workspace: {
+        configuration: options.pullConfiguration ?? true,
+        didChangeConfiguration: { dynamicRegistration: options.pullConfiguration ?? true },
+        ...(options.refreshHints ? { inlayHint: { refreshSupport: true } } : {}),
+      },
       textDocument: { inlayHint: { resolveSupport: { properties: ['tooltip'] } }, publishDiagnostics: { versionSupport: true }, ...(options.completion ? { completion: options.completion } : {}) },
     },
   });
@@ -116,6 +136,14 @@ export async function startClient(settings: Record<string, unknown> = {}, option
     analysedOf(uri: string) {
       const known = analysed.find((p) => p.uri === uri);
       return known ? Promise.resolve(known) : new Promise<AnalysedParams>((resolve) => analysedWaiters.push({ uri, resolve }));
+    },
+    hintRefreshes: () => refreshes,
+    hintRefresh(after: number, timeoutMs = 15000) {
+      if (refreshes > after) return Promise.resolve();
+      return new Promise<void>((resolve, reject) => {
+        const timer = setTimeout(() => reject(new Error(`no inlay hint refresh within ${timeoutMs} ms`)), timeoutMs);
+        refreshWaiters.push({ after, resolve: () => { clearTimeout(timer); resolve(); } });
+      });
     },
     configured(uri: string) {
       return new Promise<void>((resolve) => configWaiters.push({ uri, resolve }));

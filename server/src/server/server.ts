@@ -7,7 +7,7 @@
  */
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
-import { pathToFileURL } from 'node:url';
+import { fileURLToPath, pathToFileURL } from 'node:url';
 import {
   DidChangeConfigurationNotification,
   TextDocumentSyncKind,
@@ -129,7 +129,8 @@ export function startServer(connection: Connection, collector: IdleCollector = n
   const notes = new Map<string, NoteState>();
   const clientSettings = new Map<string, ClientSettings>();
   const configs = new ProjectConfigs();
-  const configDiagnostics = new Set<string>();
+  /** The problems last published on each pneumark.config.json that has had any (as JSON; '[]' once cleared). */
+  const configDiagnostics = new Map<string, string>();
   const docs = docsUri();
   // A finding reused from the previous analysis keeps its translated diagnostic.
   const translated = new WeakMap<object, Diagnostic>();
@@ -149,6 +150,8 @@ export function startServer(connection: Connection, collector: IdleCollector = n
   const loggedProblems = new Set<string>();
   /** The client fetches a hint's tooltip when it shows it (`inlayHint/resolve`). */
   let deferHintTooltips = false;
+  /** The client asks again for the hints it shows when told to (`workspace/inlayHint/refresh`). */
+  let canRefreshHints = false;
 
   const log = (message: string) => connection.console.log(message);
   const guard = <P, R>(name: string, fallback: R, handler: (params: P) => R) => (params: P): R => {
@@ -164,6 +167,7 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     canPullConfiguration = params.capabilities.workspace?.configuration === true;
     deferHintTooltips = params.capabilities.textDocument?.inlayHint?.resolveSupport?.properties.includes('tooltip') === true;
     insertReplace = params.capabilities.textDocument?.completion?.completionItem?.insertReplaceSupport === true;
+    canRefreshHints = params.capabilities.workspace?.inlayHint?.refreshSupport === true;
     return {
       capabilities: {
         textDocumentSync: { openClose: true, change: TextDocumentSyncKind.Incremental, save: false },
@@ -220,10 +224,12 @@ export function startServer(connection: Connection, collector: IdleCollector = n
   function publishConfigProblems(path: string | null, problems: readonly { message: string; range: Diagnostic['range'] }[]): void {
     if (!path) return;
     const uri = pathToFileURL(path).toString();
-    if (problems.length === 0 && !configDiagnostics.has(uri)) return;
-    if (problems.length === 0) configDiagnostics.delete(uri);
-    else configDiagnostics.add(uri);
-    void connection.sendDiagnostics({ uri, diagnostics: problems.map((p) => ({ range: p.range, message: p.message, severity: 1, source: 'pneumark', code: 'config' })) });
+    // Sent when they change, not with every request about a note below the file.
+    const diagnostics = problems.map((p) => ({ range: p.range, message: p.message, severity: 1 as const, source: 'pneumark', code: 'config' }));
+    const key = JSON.stringify(diagnostics);
+    if (configDiagnostics.get(uri) === key || (problems.length === 0 && !configDiagnostics.has(uri))) return;
+    configDiagnostics.set(uri, key);
+    void connection.sendDiagnostics({ uri, diagnostics });
   }
 
   function stateFor(doc: TextDocument): NoteState {
@@ -385,6 +391,14 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     void connection.sendDiagnostics({ uri: e.document.uri, diagnostics: [] });
   });
 
+  /**
+   * Hints follow the settings (hint categories, the gas unit), but an editor asks for them again
+   * only when a note changes: after a change of settings it is told to (when it can be).
+   */
+  function refreshHints(): void {
+    if (canRefreshHints) void connection.languages.inlayHint.refresh().catch(() => undefined);
+  }
+
   connection.onDidChangeConfiguration((params: { settings?: unknown }) => {
     clientSettings.clear();
     if (!canPullConfiguration) {
@@ -392,14 +406,21 @@ export function startServer(connection: Connection, collector: IdleCollector = n
       const pushed: unknown = params?.settings;
       if (pushed && typeof pushed === 'object') pushedSettings = readSettings((pushed as Record<string, unknown>)['pneumark'] ?? {});
     }
-    for (const doc of documents.all()) {
-      void pullClientSettings(doc.uri).then(() => schedule(doc.uri, true));
-    }
+    const pulled = documents.all().map((doc) => pullClientSettings(doc.uri).then(() => schedule(doc.uri, true)));
+    void Promise.all(pulled).then(refreshHints, refreshHints);
   });
 
   connection.onDidChangeWatchedFiles(() => {
     configs.invalidate();
+    // A project file that is gone takes its problems with it (the notes below it now use the
+    // editor's settings, or a file further up).
+    for (const [uri, sent] of [...configDiagnostics]) {
+      if (existsSync(fileURLToPath(uri))) continue;
+      configDiagnostics.delete(uri);
+      if (sent !== '[]') void connection.sendDiagnostics({ uri, diagnostics: [] });
+    }
     for (const doc of documents.all()) schedule(doc.uri, true);
+    refreshHints();
   });
 
   const withResult = <P extends { textDocument: { uri: string } }, R>(name: string, fallback: R, body: (result: NoteResult, doc: TextDocument, state: NoteState, params: P) => R) =>
