@@ -21,7 +21,7 @@ function folder(files: Readonly<Record<string, string | Buffer>>): string {
   return dir;
 }
 
-const rowsOf = (csv: string): Record<string, string>[] => parse(csv, { columns: true }) as Record<string, string>[];
+const rowsOf = (csv: string): Record<string, string>[] => parse(csv, { columns: true, bom: true }) as Record<string, string>[];
 
 describe('notes with nothing to export, and notes that cannot be read', () => {
   const dir = folder({
@@ -65,6 +65,8 @@ describe('--spreadsheet-safe', () => {
     expect(exact.map((r) => r.label)).toEqual(labels);
     const safe = cli(dir, ['export', '.', '--format', 'csv', '--spreadsheet-safe']);
     expect(safe.status).toBe(0);
+    expect(safe.stdout.startsWith('\ufefffile,')).toBe(true); // a byte-order mark, once
+    expect(safe.stdout.split('\ufeff')).toHaveLength(2);
     const rows = rowsOf(safe.stdout);
     expect(rows.map((r) => r.label)).toEqual(labels.map((l) => (/^[=+\-@]/.test(l) ? `'${l}` : l)));
     expect(rows.map((r) => r.file)).toEqual(Array(5).fill("'=note.pneu"));

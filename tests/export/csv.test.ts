@@ -11,7 +11,7 @@ const plain = { redactProse: false, shiftDays: 0 } as const;
 
 /** Reads a CSV text back as csv-parse does by default, with the header as keys. */
 function readBack(text: string): Record<string, string>[] {
-  return parse(text, { columns: true }) as Record<string, string>[];
+  return parse(text, { columns: true, bom: true }) as Record<string, string>[];
 }
 
 /** Every cell as it must read back: '' for null, the number to full precision, the text as it is. */
@@ -153,6 +153,14 @@ describe('text that starts like a spreadsheet formula', () => {
     expect(back[1]?.base_excess_mmol_L).toBe('-4'); // a number, never changed
     const undo = (cell: string) => (cell.startsWith("'") ? cell.slice(1) : cell);
     expect(back.map((r) => undo(r.label!))).toEqual(rows.map((r) => r.label ?? ''));
+  });
+
+  it('starts the file with a byte-order mark (so spreadsheet programs read UTF-8), only then', () => {
+    const rows = timepointRows('a.pneu', checked('@ day 1 08:00  arrivée\nvitals hr 90'), plain);
+    const text = toCsv(exportColumns(), rows, safe);
+    expect(text.startsWith('\ufefffile,')).toBe(true);
+    expect(toCsv(exportColumns(), rows).startsWith('file,')).toBe(true);
+    expect((parse(text, { columns: true, bom: true }) as Record<string, string>[])[0]?.label).toBe('arrivée');
   });
 
   it('guards tab and carriage return at the start too, and nothing else', () => {

@@ -100,7 +100,7 @@ export async function runExport(args: readonly string[], io: Io): Promise<number
     }
     return r.problem;
   };
-  output.write(opts.format === 'csv' ? csvHeader(exportColumns()) : opts.format === 'fhir' ? '[\n' : '');
+  output.write(opts.format === 'csv' ? csvHeader(exportColumns(), { spreadsheetSafe: opts.spreadsheetSafe }) : opts.format === 'fhir' ? '[\n' : '');
   const reports = await gather(files, task, io, new NoteWorker(io.cwd, {}, exportRenderer), opts.progress && !io.stdout.isTTY, 'exporting', opts.jobs, {
     inOrder: (r) => written(r, write(r)),
     ready: () => output.ready(),

@@ -7,7 +7,7 @@
  * - The first record is the header: the column names (`csvHeader`), so the CLI can write it once
  *   and then stream the records of many notes (`csvRecord`).
  * - Fields are separated by commas. A field holding `"`, `,`, CR or LF is quoted, with every `"`
- *   doubled; other fields are written as they are (no trimming, no BOM, any Unicode).
+ *   doubled; other fields are written as they are (no trimming, any Unicode).
  * - Numbers are written by JavaScript's own conversion (`String(n)`: `72.00591128118`, `-4`,
  *   `1e+21`), independent of locale; null, NaN and infinities are written as an empty field.
  * - Text is written exactly as it is by default, even when it starts with `=`, `+`, `-` or `@`:
@@ -17,7 +17,9 @@
  *   that starts with `=`, `+`, `-`, `@`, a tab, a carriage return or an apostrophe gets one more
  *   apostrophe in front (`=1+1` → `'=1+1`, `'quoted` → `''quoted`), which spreadsheet programs
  *   take as "text, not a formula". Numbers are never changed (`-4` stays a number). The change is
- *   exact to undo: remove one leading apostrophe from every text cell that starts with one.
+ *   exact to undo: remove one leading apostrophe from every text cell that starts with one. The
+ *   file then also starts with a byte-order mark, so that spreadsheet programs read it as UTF-8.
+ * - Otherwise there is no byte-order mark: the file starts with the header's first column name.
  */
 import type { Cell, ColumnDef, Row } from './columns';
 
@@ -48,9 +50,13 @@ export function csvField(value: Cell | undefined, options: CsvOptions = EXACT): 
   return /[",\r\n]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text;
 }
 
-/** The header record, ending with `\n`. */
-export function csvHeader(columns: readonly ColumnDef[]): string {
-  return `${columns.map((c) => csvField(c.name)).join(',')}\n`;
+/**
+ * The header record, ending with `\n`; with `spreadsheetSafe`, after a byte-order mark (U+FEFF),
+ * without which spreadsheet programs may read the UTF-8 file in a legacy code page (`é` as `Ã©`,
+ * from memory of common spreadsheet behaviour).
+ */
+export function csvHeader(columns: readonly ColumnDef[], options: CsvOptions = EXACT): string {
+  return `${options.spreadsheetSafe ? '\ufeff' : ''}${columns.map((c) => csvField(c.name)).join(',')}\n`;
 }
 
 /** One record of a row, in column order, ending with `\n`. A key the row lacks is an empty field. */
@@ -67,5 +73,5 @@ export function csvCells(cells: readonly (Cell | undefined)[], options: CsvOptio
 
 /** A whole CSV file: the header, then one record per row. */
 export function toCsv(columns: readonly ColumnDef[], rows: readonly Readonly<Row>[], options: CsvOptions = EXACT): string {
-  return csvHeader(columns) + rows.map((row) => csvRecord(columns, row, options)).join('');
+  return csvHeader(columns, options) + rows.map((row) => csvRecord(columns, row, options)).join('');
 }
