@@ -89,6 +89,16 @@ describe('keys', () => {
     expect(labels('vitals hr|')).toContain('hr'); // the key being typed does not count as used
   });
 
+  it('right after a comma, with a blank before the key', () => {
+    const { text, result, position } = noteAt('vitals hr 80,|');
+    const rr = completionsAt(result, position).find((c) => c.label === 'rr')!;
+    expect(applyEdits(text, [{ range: rr.replace!, newText: rr.insertText }])).toBe('vitals hr 80, rr');
+    const typed = noteAt('vitals hr 80,s|p');
+    const spo2 = completionsAt(typed.result, typed.position).find((c) => c.label === 'spo2')!;
+    expect(applyEdits(typed.text, [{ range: spo2.replace!, newText: spo2.insertText }])).toBe('vitals hr 80, spo2');
+    expect(complete('vitals hr 80, |').find((c) => c.label === 'rr')?.insertText).toBe('rr');
+  });
+
   it('after a complete item without a comma (commas are optional)', () => {
     expect(labels('vitals hr 80 bpm |')).toContain('rr');
     expect(labels('abg 7.28/56/71/26 kPa |')).toContain('be');

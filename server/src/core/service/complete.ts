@@ -77,7 +77,9 @@ function completionsOnLine(node: LineNode, position: Position): CompletionInfo[]
   // The whole word under the cursor is replaced, also the part after it (`sp|2` becomes `spo2`).
   const replace = lineRange(line, wordStart, wordEnd);
   const used = usedFields(section.id, node.kind === 'section' ? node.items : [], wordStart);
-  const keys = () => narrow(keyCompletions(section.id, used, replace), typed);
+  // Right after a comma (`hr 80,|`, a trigger character), a key is written after a blank, as the formatter writes it.
+  const glued = wordStart > 0 && text.charCodeAt(wordStart - 1) === 0x2c;
+  const keys = () => narrow(keyCompletions(section.id, used, replace), typed).map((c) => (glued ? { ...c, insertText: ` ${c.insertText}` } : c));
   const last = chunks[chunks.length - 1]!;
   const afterComma = before.slice(last.span.end).includes(',');
   if (chunks.length === 1) {
