@@ -75,7 +75,8 @@ describe('observations', () => {
     expect(pao2.status).toBe('final');
     expect(pao2.code.coding).toEqual([{ system: 'http://loinc.org', code: '2703-7', display: 'Oxygen [Partial pressure] in Arterial blood' }]);
     expect(pao2.valueQuantity).toEqual({ value: 74, unit: 'mmHg', system: 'http://unitsofmeasure.org', code: 'mm[Hg]' });
-    expect(byId(bundle, 'obs-0-temp')?.valueQuantity).toEqual({ value: 38.9, unit: 'C', system: 'http://unitsofmeasure.org', code: 'Cel' });
+    expect(byId(bundle, 'obs-0-temp')?.valueQuantity).toEqual({ value: 38.9, unit: '°C', system: 'http://unitsofmeasure.org', code: 'Cel' });
+    expect(byId(bundle, 'obs-0-ph')?.valueQuantity).toEqual({ value: 7.29, unit: 'pH', system: 'http://unitsofmeasure.org', code: '[pH]' });
     expect(byId(bundle, 'obs-0-fio2')?.valueQuantity).toEqual({ value: 0.8, unit: 'fraction', system: 'http://unitsofmeasure.org', code: '1' });
     expect(byId(bundle, 'obs-0-spo2')?.valueQuantity).toEqual({ value: 91, unit: '%', system: 'http://unitsofmeasure.org', code: '%' });
   });
