@@ -151,6 +151,21 @@ describe('hover on a timepoint line', () => {
     endsWithCaution(md);
   });
 
+  it('names a time it could not read as written, never as `?` or as a day with no time', () => {
+    const bad = markdown('@ 25:|10  handover');
+    expect(bad).toContain('**`@ 25:10`** — handover');
+    expect(bad).toContain('Time: unknown — `25:10` is not a time Pneumark reads.');
+    expect(bad).not.toContain('?');
+    const part = markdown('@ day 1 25:10  hand|over');
+    expect(part).toContain('Time: day 1, no time of day.');
+    expect(part).toContain('`25:10` after it is not a time Pneumark reads.');
+    expect(markdown('@ day 2 08|00')).toContain('`0800` after it is not a time Pneumark reads.');
+    expect(markdown('@|')).toContain('Time: unknown — no time is written after `@`.');
+    // A comma or full stop after a time that was read is not part of it.
+    expect(markdown('@ 08:00, arr|ival')).not.toContain('not a time');
+    expect(markdown('@ 08:00.|')).not.toContain('not a time');
+  });
+
   it('counts UTF-16 columns after emoji and non-ASCII prose', () => {
     const h = hover('@ 07:40  café 😀 revi|ew   # note');
     expect(h?.range.end.character).toBe('@ 07:40  café 😀 review'.length);

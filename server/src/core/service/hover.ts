@@ -211,10 +211,17 @@ export function clockText(minutes: number): string {
   return `day ${day}, ${String(h).padStart(2, '0')}:${String(m).padStart(2, '0')}`;
 }
 
-function timeParagraph(node: TimepointLine, tp: Timepoint | null): string {
+/** The time as written after `@` (also one that could not be read), without the label. */
+function writtenTime(node: TimepointLine, end: number): string {
+  if (node.time) return node.time.text;
+  return node.text.slice(node.marker.span.end, node.label ? node.label.span.start : end).replace(/^[\s,]+|[\s,]+$/g, '');
+}
+
+function timeParagraph(node: TimepointLine, tp: Timepoint | null, written: string): string {
   const t = tp?.time;
-  if (!node.time || !t || (t.minutes === null && t.day === null)) {
-    return node.time?.kind === 'offset' ? 'Time: unknown — an offset after a timepoint whose time is unknown.' : 'Time: unknown.';
+  if (!node.time) return written ? `Time: unknown — ${code(written)} is not a time Pneumark reads.` : 'Time: unknown — no time is written after `@`.';
+  if (!t || (t.minutes === null && t.day === null)) {
+    return node.time.kind === 'offset' ? 'Time: unknown — an offset after a timepoint whose time is unknown.' : 'Time: unknown.';
   }
   if (node.time.kind === 'day' && t.day !== null) return `Time: day ${t.day}, no time of day.`;
   if (t.minutes === null) return `Time: day ${t.day ?? '?'}.`;
@@ -243,8 +250,11 @@ function missingGroups(d: TimepointDerivation): string[] {
 
 function timepointHover(result: NoteResult, node: TimepointLine, start: number, end: number): HoverInfo {
   const tp = result.analysis.timeline.timepoints.find((t) => t.line === node.line) ?? null;
-  const title = `**${code(`@ ${node.time ? node.time.text : '?'}`)}**${node.label ? ` — ${escapeMarkdown(node.label.text)}` : ''}`;
-  const parts: (string | null)[] = [title, timeParagraph(node, tp)];
+  const written = writtenTime(node, end);
+  const title = `**${code(written ? `@ ${written}` : '@')}**${node.label ? ` — ${escapeMarkdown(node.label.text)}` : ''}`;
+  // Text between a time that was read and the label (`@ day 1 25:10`, `@ day 2 0800`): part of the time that was not.
+  const unread = node.time ? node.text.slice(node.time.span.end, node.label ? node.label.span.start : end).replace(/^[\s,.]+|[\s,.]+$/g, '') : '';
+  const parts: (string | null)[] = [title, timeParagraph(node, tp, written), unread ? `${code(unread)} after it is not a time Pneumark reads.` : null];
   if (tp) {
     const carried = [...tp.values.values()]
       .filter((v) => v.origin.kind === 'carried' || v.origin.kind === 'header')
