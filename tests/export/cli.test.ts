@@ -155,3 +155,19 @@ describe('CSV read back equals the analysis, value by value', () => {
     expect(compared).toBeGreaterThan(500);
   }, 60_000);
 });
+
+describe('the documented columns are the columns written', () => {
+  it('README.md lists exactly the CSV header of the built CLI, in order, and JSON Lines has the same keys', async () => {
+    const { readFileSync } = await import('node:fs');
+    const readme = readFileSync('README.md', 'utf8');
+    const block = readme.slice(readme.indexOf('<!-- export-columns:start'), readme.indexOf('<!-- export-columns:end'));
+    const documented = [...block.matchAll(/^\| `([^`]+)` \|/gm)].map((m) => m[1]);
+    const count = /share these (\d+) columns/.exec(block)?.[1];
+    const dir = folder({ 'a.pneu': '@ day 1 08:00\nvitals hr 90\n' });
+    const header = cli(dir, ['export', 'a.pneu', '--format', 'csv']).stdout.split('\n')[0]!.split(',');
+    expect(documented).toEqual(header);
+    expect(Number(count)).toBe(header.length);
+    const keys = Object.keys(JSON.parse(cli(dir, ['export', 'a.pneu', '--format', 'jsonl']).stdout) as object);
+    expect(keys).toEqual([...header, 'findings']);
+  });
+});
