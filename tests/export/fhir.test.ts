@@ -171,6 +171,14 @@ describe('codes that fit the value', () => {
     expect(validator.validate(b, true)).toEqual([]);
   });
 
+  it('a tidal volume under a mode that sets none (PS, PC, …) was delivered, so it does not carry the setting code (20112-9)', () => {
+    const b = toFhirBundle('a.pneu', checked('@ day 1 08:00\nvent mode VC, vt 420, rate 16, peep 8, fio2 0.5\n@ +1h\nvent mode PS, ps 10, vt 510\n@ +1h\nvent vt 400'), noAnchor);
+    expect(codeOf(b, 'obs-0-vt')?.coding?.map((c) => c.code)).toEqual(['20112-9']);
+    expect(codeOf(b, 'obs-1-vt')).toEqual({ text: 'Tidal volume' });
+    expect(byId(b, 'obs-1-vt')?.valueQuantity?.value).toBe(510);
+    expect(codeOf(b, 'obs-2-vt')).toEqual({ text: 'Tidal volume' }); // PS carried: still no set volume
+  });
+
   it('a serum value written as tco2 is total CO2, so it does not carry the bicarbonate code (1963-8)', () => {
     const b = toFhirBundle('a.pneu', checked('@ day 1 08:00\nlabs tco2 25\n@ +1h\nlabs hco3 24'), noAnchor);
     expect(codeOf(b, 'obs-0-hco3-serum')).toEqual({ text: 'Bicarbonate (serum)' });

@@ -22,7 +22,9 @@
  * from a `vbg` line nor a venous one on an `abg` line, and a serum-or-plasma code never on a value
  * from a blood gas (`abg`, `vbg`), which is measured in whole blood; and the oxygen flow code
  * (3151-8) never on the flow of a high-flow device (`hfnc`), which is the total gas flow, nor the
- * bicarbonate code on a value written as `tco2` (total CO2). A value whose field has no
+ * bicarbonate code on a value written as `tco2` (total CO2), nor the tidal volume setting code
+ * (20112-9) on a tidal volume written under a mode that sets none (PC, PS, APRV, CPAP, HFOV: it was
+ * delivered). A value whose field has no
  * code, or whose code does not fit, is still exported, with `code.text` alone and no coding: a
  * wrong code is worse than none. A code marked `fromMemory` in the registry was recalled, not read
  * from the LOINC table.
@@ -176,9 +178,14 @@ export interface WrittenAs {
   readonly key: string | null;
   /** The oxygen device in force at the timepoint (`hfnc`, `cannula`, …). */
   readonly device: string | null;
+  /** The ventilator mode in force at the timepoint (`VC`, `PS`, …). */
+  readonly mode: string | null;
 }
 
-const NOTHING_MORE: WrittenAs = { key: null, device: null };
+const NOTHING_MORE: WrittenAs = { key: null, device: null, mode: null };
+
+/** Ventilator modes with no set tidal volume: a tidal volume written with them was delivered, not set. */
+const MODES_WITHOUT_SET_VOLUME: ReadonlySet<string> = new Set(['PC', 'PS', 'APRV', 'CPAP', 'HFOV']);
 
 /**
  * Why a LOINC code does not fit a value of `field` stated in `section`, read from what the code's
@@ -190,6 +197,7 @@ export function loincMismatch(loinc: LoincCode, field: FieldDef, section: Sectio
   // `tco2` is total CO2 (bicarbonate plus dissolved CO2 and carbamino CO2), which LOINC codes apart from bicarbonate.
   if (/^Bicarbonate\b/.test(name) && written.key === 'tco2') return `${loinc.code} is bicarbonate, the value was written as total CO2 (tco2)`;
   // A high-flow device's flow is the total gas flow (air and oxygen blended to the FiO2), not the oxygen flow.
+  if (/\bsetting\b/.test(name) && field.id === 'vt' && written.mode !== null && MODES_WITHOUT_SET_VOLUME.has(written.mode)) return `${loinc.code} is a set tidal volume, and ${written.mode} sets none`;
   if (/^Inhaled oxygen flow rate\b/.test(name) && device === 'hfnc') return `${loinc.code} is the oxygen flow, the value is the total gas flow of a high-flow device`;
   if (name.includes('[Mass/volume]') && field.dimension !== 'mass-concentration') return `${loinc.code} is a mass concentration, the value is not`;
   if (name.includes('[Moles/volume]') && field.dimension !== 'substance-concentration') return `${loinc.code} is a substance concentration, the value is not`;
@@ -301,12 +309,14 @@ interface Place {
   readonly note: string;
   /** The oxygen device in force there (its flow means another thing on a high-flow device). */
   readonly device: string | null;
+  /** The ventilator mode in force there (a tidal volume is set only in some). */
+  readonly mode: string | null;
 }
 
 /** The Observation of one stated value; null when the field is not exported or has no usable number. */
 function fieldObservation(field: FieldDef, input: InputValue, place: Place): Omit<FhirObservation, 'id'> | null {
   // A ventilator's FiO2 is a setting with a code of its own; a code that does not fit is left out.
-  const loinc = fhirLoinc(field, input.stated.section, { key: input.stated.item.keyName, device: place.device });
+  const loinc = fhirLoinc(field, input.stated.section, { key: input.stated.item.keyName, device: place.device, mode: place.mode });
   const unitId = input.stated.unit;
   if (!isObservedField(field) || !input.stated.usable || unitId === null) return null;
   const base = {
@@ -352,7 +362,7 @@ export function toFhirBundle(path: string, result: NoteResult, options: FhirOpti
   // Header values, once.
   const header = new Map<string, InputValue>();
   for (const tp of timepoints) for (const [id, input] of tp.values) if (input.origin.kind === 'header' && !header.has(id)) header.set(id, input);
-  const headerPlace: Place = { key: 'header', effective: null, note: 'Pneumark note header (describes the patient for the whole note)', device: null };
+  const headerPlace: Place = { key: 'header', effective: null, note: 'Pneumark note header (describes the patient for the whole note)', device: null, mode: null };
   for (const field of FIELDS) {
     const input = header.get(field.id);
     const resource = input ? fieldObservation(field, input, headerPlace) : null;
@@ -367,8 +377,11 @@ export function toFhirBundle(path: string, result: NoteResult, options: FhirOpti
         // A day without a time of day: a FHIR dateTime to the day (`2024-03-02`), never an invented midnight.
         : finite(day) ? shiftedDateTime(anchor, (day - 1 + options.shiftDays) * MINUTES_PER_DAY)?.slice(0, 10) ?? null
           : null;
-    const device = tp.values.get('device');
-    const place: Place = { key: String(tp.index), effective, note: timepointNote(tp, writtenLabel(result, tp), options), device: device?.stated.usable ? device.stated.word : null };
+    const word = (id: string): string | null => {
+      const input = tp.values.get(id);
+      return input?.stated.usable ? input.stated.word : null;
+    };
+    const place: Place = { key: String(tp.index), effective, note: timepointNote(tp, writtenLabel(result, tp), options), device: word('device'), mode: word('mode') };
     for (const field of FIELDS) {
       const input = tp.values.get(field.id);
       if (!input || input.origin.kind !== 'here') continue;
