@@ -17,17 +17,18 @@
  *
  * Codes: `code.text` is always our label; `code.coding` holds the field's LOINC code from the
  * registry (per section where it has one: a ventilator's FiO2 is a setting) only when what the
- * code's name says agrees with the value (`fhirLoinc`): a `[Mass/volume]` code is never put on a
- * value in mmol/L (nor `[Moles/volume]` on one in g/dL), an arterial-blood code never on a value
- * from a `vbg` line nor a venous one on an `abg` line, and a serum-or-plasma code never on a value
- * from a blood gas (`abg`, `vbg`), which is measured in whole blood; and the oxygen flow code
- * (3151-8) never on the flow of a high-flow device (`hfnc`), which is the total gas flow, nor the
- * bicarbonate code on a value written as `tco2` (total CO2), nor the tidal volume setting code
- * (20112-9) on a tidal volume written under a mode that sets none (PC, PS, APRV, CPAP, HFOV: it was
- * delivered). A value whose field has no
- * code, or whose code does not fit, is still exported, with `code.text` alone and no coding: a
- * wrong code is worse than none. A code marked `fromMemory` in the registry was recalled, not read
- * from the LOINC table.
+ * code's name says agrees with the value (`fhirLoinc`, `loincMismatch`):
+ * - a `[Mass/volume]` code never on a value in mmol/L, nor `[Moles/volume]` on one in g/dL;
+ * - an arterial-blood code never on a value from a `vbg` line, nor a venous one on an `abg` line;
+ * - a serum-or-plasma code never on a value from a blood gas (`abg`, `vbg`: whole blood);
+ * - the oxygen flow code (3151-8) never on the flow of a high-flow device (`hfnc`), which is the
+ *   total gas flow;
+ * - the bicarbonate code never on a value written as `tco2` (total CO2);
+ * - the tidal volume setting code (20112-9) never on a tidal volume written under a mode that sets
+ *   none (PC, PS, APRV, CPAP, HFOV: it was delivered).
+ * A value whose field has no code, or whose code does not fit, is still exported, with `code.text`
+ * alone and no coding: a wrong code is worse than none. A code marked `fromMemory` in the registry
+ * was recalled, not read from the LOINC table.
  *
  * Every Observation has `status: final` and a `valueQuantity` in the field's canonical unit
  * (gases in mmHg, whatever the note wrote), full precision, with the UCUM code of the unit
@@ -42,9 +43,9 @@
  * height and weight (both belong to FHIR's vital-signs set), no category for age.
  *
  * Time: notes hold relative days and clock times only. With `anchor` (an ISO 8601 date-time with
- * seconds optional and a zone, `Z` or `±hh:mm`, meaning 00:00 of day 1, so its time must be 00:00:
- * `2024-03-01T08:00Z` would move every clock time of the note by 8 hours and is refused), `effectiveDateTime` is
- * the anchor plus the timepoint's minutes plus shiftDays × 1440 minutes, written with the
+ * seconds optional and a zone, `Z` or `±hh:mm`, meaning 00:00 of day 1, so its time must be
+ * 00:00: `2024-03-01T08:00Z` would move every clock time of the note by 8 hours and is refused),
+ * `effectiveDateTime` is the anchor plus the timepoint's minutes plus shiftDays × 1440 minutes, written with the
  * anchor's own offset: the note's clock times are read as wall-clock times at that fixed offset,
  * with no daylight-saving change applied (a note that crosses one is an hour off after it). A
  * timepoint whose day is known but not its time of day (`@ day 3`) gets the date alone
