@@ -171,3 +171,30 @@ describe('the documented columns are the columns written', () => {
     expect(keys).toEqual([...header, 'findings']);
   });
 });
+
+describe('check --format sarif from the built CLI', () => {
+  it('is valid SARIF 2.1.0, with UTF-16 columns after an emoji, relative URIs under SRCROOT, absolute ones as file: URIs and standard input without a URI', async () => {
+    const { sarifValidator } = await import('./helpers');
+    const validate = sarifValidator();
+    const dir = folder({ 'e 1.pneu': '@ day 1 08:00\nvitals 😀 rrr 5\n' });
+    const relative = cli(dir, ['check', 'e 1.pneu', '--format', 'sarif']);
+    const log = JSON.parse(relative.stdout) as { runs: { columnKind: string; results: { ruleId: string; locations: { physicalLocation: { artifactLocation: Record<string, unknown>; region: Record<string, number> } }[] }[] }[] };
+    expect(validate(log).errors).toEqual([]);
+    const run = log.runs[0]!;
+    expect(run.columnKind).toBe('utf16CodeUnits');
+    const pn201 = run.results.find((r) => r.ruleId === 'PN201')!.locations[0]!.physicalLocation;
+    expect(pn201.region).toEqual({ startLine: 2, startColumn: 11, endLine: 2, endColumn: 14 });
+    expect(pn201.artifactLocation).toEqual({ uri: 'e%201.pneu', uriBaseId: 'SRCROOT', index: 0 });
+
+    const absolute = JSON.parse(cli(dir, ['check', join(dir, 'e 1.pneu'), '--format', 'sarif']).stdout) as typeof log;
+    expect(validate(absolute).errors).toEqual([]);
+    const uri = absolute.runs[0]!.results[0]!.locations[0]!.physicalLocation.artifactLocation;
+    // The CLI shows a note inside the working folder by its relative path, whatever was typed.
+    expect(uri).toEqual({ uri: 'e%201.pneu', uriBaseId: 'SRCROOT', index: 0 });
+
+    const stdin = spawnSync(process.execPath, [CLI, 'check', '-', '--format', 'sarif'], { cwd: dir, input: '@ day 1 08:00\nvitals 😀 rrr 5\n', encoding: 'utf8' });
+    const fromStdin = JSON.parse(stdin.stdout) as typeof log;
+    expect(validate(fromStdin).errors).toEqual([]);
+    expect(fromStdin.runs[0]!.results[0]!.locations[0]!.physicalLocation.artifactLocation).toEqual({ description: { text: 'standard input' }, index: 0 });
+  });
+});
