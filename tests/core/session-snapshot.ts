@@ -7,21 +7,47 @@ import { FIELDS } from '../../server/src/core/fields/registry';
 import { inlayHints } from '../../server/src/core/service/hints';
 import { documentSymbols, foldingRanges } from '../../server/src/core/service/symbols';
 import { HINT_CATEGORIES } from '../../server/src/core/service/types';
-import type { StatedValue } from '../../server/src/core/analysis/model';
-import type { DerivedValue } from '../../server/src/core/derive/model';
+import type { Origin, StatedValue } from '../../server/src/core/analysis/model';
+import type { ReadIssue } from '../../server/src/core/analysis/read-issues';
+import type { DerivedValue, InputOrigin, Term } from '../../server/src/core/derive/model';
+import type { LineFix, Span } from '../../server/src/core/syntax/tree';
+
+/**
+ * A span as its two numbers. The parser's nodes are their own spans and keep their whole line, so
+ * a span written out as it is would repeat the line once per item (quadratic on a line of many).
+ */
+function span(s: Span): Span {
+  return { start: s.start, end: s.end };
+}
+
+function origin(o: Origin | InputOrigin): unknown {
+  return 'span' in o ? { ...o, span: span(o.span) } : o;
+}
+
+function lineFix(f: LineFix): unknown {
+  return { ...f, edits: f.edits.map((e) => ({ ...e, span: span(e.span) })) };
+}
+
+function readIssue(i: ReadIssue): unknown {
+  return { check: i.check, line: i.line, span: span(i.span), message: i.message, fixes: i.fixes.map(lineFix), related: i.related?.map((r) => ({ line: r.line, span: span(r.span), message: r.message })) };
+}
+
+function term(t: Term): unknown {
+  return { ...t, origin: origin(t.origin) };
+}
 
 function stated(s: StatedValue): unknown {
   return {
     fieldId: s.fieldId, section: s.section, line: s.line, value: s.value, parts: s.parts, word: s.word, unit: s.unit,
     readUnit: s.readUnit, unitImplied: s.unitImplied, unitDoubt: s.unitDoubt, usable: s.usable,
-    item: { span: s.item.span, keyName: s.item.keyName, implied: s.item.implied, field: s.item.field?.id ?? null, valueKind: s.item.valueKind, number: s.item.number, unitText: s.item.unitText },
+    item: { span: span(s.item.span), keyName: s.item.keyName, implied: s.item.implied, field: s.item.field?.id ?? null, valueKind: s.item.valueKind, number: s.item.number, unitText: s.item.unitText },
   };
 }
 
 function derived(d: DerivedValue): unknown {
   return {
     id: d.id, label: d.label, short: d.short, category: d.category, value: d.value, unit: d.unit, decimals: d.decimals,
-    range: d.range, formula: d.formula, substituted: d.substituted, template: d.template, inputs: d.inputs, source: d.source,
+    range: d.range, formula: d.formula, substituted: d.substituted, template: d.template, inputs: d.inputs.map(term), source: d.source,
     estimate: d.estimate, notes: d.notes, usesCarried: d.usesCarried, line: d.line,
   };
 }
@@ -40,12 +66,12 @@ export function snapshot(r: NoteResult): unknown {
     findings: r.findings,
     header: timeline.header.map(stated),
     headerGasUnit: timeline.headerGasUnit,
-    readIssues: timeline.readIssues,
+    readIssues: timeline.readIssues.map(readIssue),
     timepoints: timeline.timepoints.map((tp) => ({
       index: tp.index, line: tp.line, label: tp.label, startLine: tp.startLine, endLine: tp.endLine, time: tp.time,
       barometricMmhg: tp.barometricMmhg, gasUnit: tp.gasUnit, shownGasUnit: tp.shownGasUnit,
       stated: tp.stated.map(stated),
-      values: [...tp.values.entries()].map(([id, v]) => [id, stated(v.stated), v.origin]),
+      values: [...tp.values.entries()].map(([id, v]) => [id, stated(v.stated), origin(v.origin)]),
       // The readers that build nothing must agree with the values built.
       size: tp.values.size,
       quick: FIELD_IDS.map((id) => [id, tp.values.has(id), tp.values.numberOf(id), tp.values.originOf(id)]),
