@@ -4,7 +4,7 @@
  * settings (hypoxaemia PaO2 < 60 mmHg and hypercapnia PaCO2 > 50 mmHg by default, common
  * practice). Grades and cut-offs not taken from settings are named below with their source.
  */
-import { BERLIN_BAND_SEVERITY, berlinOxygenationBand, type AcidBaseClassification, type AcidBaseDisorder } from '../physiology';
+import { ANION_GAP_UPPER_NORMAL_MMOL_L, BERLIN_BAND_SEVERITY, HCO3_CENTRE_MMOL_L, HCO3_NORMAL_MMOL_L, PACO2_NORMAL_MMHG, PH_NORMAL, berlinOxygenationBand, type AcidBaseClassification, type AcidBaseDisorder } from '../physiology';
 import { forBand, sideOf } from '../physiology/numeric';
 import { MMHG_PER_KPA } from '../physiology/units';
 import type { Settings } from '../settings';
@@ -197,7 +197,10 @@ export function interpret(c: DeriveContext, settings: Settings): Interpretation[
   if (cls && !cls.consistency.consistent) {
     push('acid-base', `Acid–base not interpreted: the reported HCO3 differs from the ${formatNumber(cls.consistency.calculatedHco3MmolL, 1)} mmol/L that pH and PaCO2 give (see PN402).`, ['ph', 'paco2', 'hco3'], false);
   } else if (cls) {
-    push('acid-base', acidBaseText(cls, gas), ['ph', 'paco2', 'hco3'], cls.primary !== 'normal' || cls.additional.length > 0);
+    const gapCorrected = c.derivedValue('anion_gap_albumin_corrected') !== null;
+    const ph = c.field('ph')?.value ?? NaN;
+    const hco3 = c.field('hco3')?.value ?? NaN;
+    push('acid-base', acidBaseText(cls, gas, { ph, paco2: paco2?.value ?? NaN, hco3, hypercapniaAboveMmhg: settings.hypercapniaAboveMmhg, co2Resolution: c.writtenResolutionMmhg('paco2'), gapCorrected }), ['ph', 'paco2', 'hco3'], cls.primary !== 'normal' || cls.additional.length > 0);
   }
   return out;
 }
@@ -255,21 +258,59 @@ function fio2Words(fio2: Term): string {
   return fio2.origin.kind === 'carried' ? `${value} (carried from line ${fio2.origin.line + 1})` : value;
 }
 
-function acidBaseText(cls: AcidBaseClassification, gas: GasWords): string {
+/** What the acid–base reading names besides the classification: how the PaCO2 was written, and which anion gap was used. */
+interface AcidBaseBasis {
+  readonly ph: number;
+  readonly paco2: number;
+  readonly hco3: number;
+  readonly co2Resolution: number;
+  /** The hypercapnia threshold (setting): the PaCO2 is shown on the side of it the ventilation reading gives. */
+  readonly hypercapniaAboveMmhg: number;
+  /** The anion gap the classification used was corrected for albumin. */
+  readonly gapCorrected: boolean;
+}
+
+const PH_DECIMALS = 2;
+const HCO3_DECIMALS = 1;
+
+/**
+ * The acid–base reading: the disorder the gas is consistent with, then the gas's own numbers with
+ * their units, then what the disorder rests on (the expected response and its range, the anion
+ * gap and delta ratio), each with its number. It begins "Consistent with …" (the inlay hint's short
+ * label is read from that beginning, up to the first semicolon: service/hints.ts acidBaseLabel).
+ */
+function acidBaseText(cls: AcidBaseClassification, gas: GasWords, basis: AcidBaseBasis): string {
   const parts: string[] = [];
-  const gapKind = cls.anionGap?.metabolicAcidosisKind;
+  const { ph, paco2, hco3 } = basis;
+  const gap = cls.anionGap;
+  const gapKind = gap?.metabolicAcidosisKind;
   const gapWords = gapKind === 'high-anion-gap' ? ' with a high anion gap' : gapKind === 'normal-anion-gap' ? ' with a normal anion gap' : gapKind === 'mixed-anion-gap' ? ' with high and normal anion-gap components' : '';
+  const limits = { ph: [PH_NORMAL.low, PH_NORMAL.high], paco2: [PACO2_NORMAL_MMHG.low, PACO2_NORMAL_MMHG.high], hco3: [HCO3_NORMAL_MMOL_L.low, HCO3_NORMAL_MMOL_L.high] } as const;
+  const phShown = `pH ${formatAgainst(ph, PH_DECIMALS, limits.ph[0], limits.ph[1])}`;
+  const paco2Shown = `PaCO2 ${gas.measured(paco2, basis.co2Resolution, limits.paco2[0], limits.paco2[1], basis.hypercapniaAboveMmhg)}`;
+  const hco3Shown = `HCO3 ${formatAgainst(hco3, HCO3_DECIMALS, limits.hco3[0], limits.hco3[1])} mmol/L`;
+  const numbers = `${phShown}, ${paco2Shown}, ${hco3Shown}`;
+  // The anion gap as the reading names it: `anion gap 26 mmol/L`, `anion gap 23 mmol/L corrected for albumin`.
+  const gapShown = gap ? `anion gap ${formatAgainst(gap.valueMmolL, 0, ANION_GAP_UPPER_NORMAL_MMOL_L)} mmol/L${basis.gapCorrected ? ' corrected for albumin' : ''}` : '';
+  const ratioShown = gap?.deltaRatio !== null && gap?.deltaRatio !== undefined ? `delta ratio ${formatAgainst(gap.deltaRatio, 2, 0.4, 0.8, 2)}` : '';
   switch (cls.primary) {
-    case 'normal': parts.push('Consistent with normal acid–base balance'); break;
-    case 'undetermined': parts.push('Acid–base reading undetermined: the pH does not follow the PaCO2 and HCO3'); break;
-    case 'mixed-acidosis': parts.push('Consistent with a mixed metabolic and respiratory acidosis'); break;
-    case 'mixed-alkalosis': parts.push('Consistent with a mixed metabolic and respiratory alkalosis'); break;
+    // With a disorder the anion gap shows, the balance is normal only by these three.
+    case 'normal': parts.push(`Consistent with normal acid–base balance${cls.additional.length > 0 ? ' by pH, PaCO2 and HCO3' : ''} (${numbers})`); break;
+    case 'undetermined': parts.push(`Acid–base reading undetermined: the pH does not follow the PaCO2 and HCO3 (${numbers})`); break;
+    case 'mixed-acidosis':
+    case 'mixed-alkalosis': {
+      const acid = cls.primary === 'mixed-acidosis';
+      // Both components beyond their reference ranges, each named with the limit it is beyond.
+      const co2Limit = acid ? limits.paco2[1] : limits.paco2[0];
+      const hco3Limit = acid ? limits.hco3[0] : limits.hco3[1];
+      parts.push(`Consistent with a mixed metabolic and respiratory ${acid ? 'acidosis' : 'alkalosis'} (${phShown}; PaCO2 ${gas.measured(paco2, basis.co2Resolution, co2Limit)} ${acid ? 'above' : 'below'} ${gas.limit(co2Limit, paco2)} and HCO3 ${formatAgainst(hco3, HCO3_DECIMALS, hco3Limit)} mmol/L ${acid ? 'below' : 'above'} ${formatShort(hco3Limit)} mmol/L)`);
+      break;
+    }
     default: {
       const chron = cls.respiratoryChronicity;
       const timing = chron === 'acute' ? 'acute ' : chron === 'chronic' ? 'chronic ' : '';
-      parts.push(`Consistent with ${cls.fullyCompensated ? 'a fully compensated ' : ''}${timing}${DISORDER_WORDS[cls.primary]}${cls.primary === 'metabolic-acidosis' ? gapWords : ''}`);
-      if (chron === 'intermediate') parts.push('between the acute and chronic ranges (evolving, or acute on chronic)');
-      if (chron === 'acute-or-chronic') parts.push('too small a change to tell acute from chronic');
+      const gapDetail = cls.primary === 'metabolic-acidosis' && gapKind ? `; ${[gapShown, gapKind === 'normal-anion-gap' ? '' : ratioShown].filter(Boolean).join(', ')}` : '';
+      parts.push(`Consistent with ${cls.fullyCompensated ? 'a fully compensated ' : ''}${timing}${DISORDER_WORDS[cls.primary]}${cls.primary === 'metabolic-acidosis' ? gapWords : ''} (${numbers}${gapDetail})`);
     }
   }
   const exp = cls.expected;
@@ -278,16 +319,33 @@ function acidBaseText(cls: AcidBaseClassification, gas: GasWords): string {
     // The ends of a range are shown with the decimals that keep the observed value outside or inside it, as it is.
     const o = exp.observed;
     const range = gas.range(exp.range.low, exp.range.high, o);
-    if (cls.compensation === 'appropriate') parts[0] += `, with the expected respiratory response (PaCO2 ${range})`;
-    else if (o > exp.range.high) { parts.push(`PaCO2 ${gas.value(o, exp.range.high)} is above the expected ${range}: consistent with an added respiratory acidosis`); named.add('respiratory-acidosis'); }
-    else if (o < exp.range.low) { parts.push(`PaCO2 ${gas.value(o, exp.range.low)} is below the expected ${range}: consistent with an added respiratory alkalosis`); named.add('respiratory-alkalosis'); }
-  } else if (exp?.kind === 'metabolic-response' && cls.compensation !== 'appropriate' && cls.compensation !== 'not-applicable') {
-    const added = cls.additional.find((d) => d === 'metabolic-acidosis' || d === 'metabolic-alkalosis');
+    if (cls.compensation === 'appropriate') parts[0] += `, with the expected respiratory response (PaCO2 within the expected ${range})`;
+    else if (cls.additional.includes('respiratory-acidosis')) { parts.push(`PaCO2 ${gas.measured(o, basis.co2Resolution, exp.range.high)} is above the expected ${range}: consistent with an added respiratory acidosis`); named.add('respiratory-acidosis'); }
+    else if (cls.additional.includes('respiratory-alkalosis')) { parts.push(`PaCO2 ${gas.measured(o, basis.co2Resolution, exp.range.low)} is below the expected ${range}: consistent with an added respiratory alkalosis`); named.add('respiratory-alkalosis'); }
+  } else if (exp?.kind === 'metabolic-response') {
     const o = exp.observed;
-    parts.push(`HCO3 ${formatAgainst(o, 1, exp.acute.low, exp.acute.high, exp.chronic.low, exp.chronic.high)} mmol/L is outside the expected ${rangeAgainst(exp.acute.low, exp.acute.high, 0, o)} mmol/L (acute) and ${rangeAgainst(exp.chronic.low, exp.chronic.high, 0, o)} mmol/L (chronic): consistent with an added ${added ? DISORDER_WORDS[added] : 'metabolic disorder'}`);
-    if (added) named.add(added);
+    const acuteRange = `${rangeAgainst(exp.acute.low, exp.acute.high, 0, o)} mmol/L`;
+    const chronicRange = `${rangeAgainst(exp.chronic.low, exp.chronic.high, 0, o)} mmol/L`;
+    const hco3Against = `HCO3 ${formatAgainst(o, HCO3_DECIMALS, exp.acute.low, exp.acute.high, exp.chronic.low, exp.chronic.high)} mmol/L`;
+    const chron = cls.respiratoryChronicity;
+    if (cls.compensation !== 'appropriate' && cls.compensation !== 'not-applicable') {
+      const added = cls.additional.find((d) => d === 'metabolic-acidosis' || d === 'metabolic-alkalosis');
+      parts.push(`${hco3Against} is outside the expected ${acuteRange} (acute) and ${chronicRange} (chronic): consistent with an added ${added ? DISORDER_WORDS[added] : 'metabolic disorder'}`);
+      if (added) named.add(added);
+    } else if (chron === 'acute') parts[0] += `, with HCO3 within the ${acuteRange} expected if acute (${chronicRange} if chronic)`;
+    else if (chron === 'chronic') parts[0] += `, with HCO3 within the ${chronicRange} expected if chronic (${acuteRange} if acute)`;
+    else if (chron === 'intermediate') parts.push(`${hco3Against} is between the acute and chronic ranges (${acuteRange} if acute, ${chronicRange} if chronic): evolving, or acute on chronic`);
+    else if (chron === 'acute-or-chronic') parts.push(`${hco3Against} is within both the acute (${acuteRange}) and the chronic (${chronicRange}) range, which overlap here, so acute cannot be told from chronic`);
   }
   const extra = cls.additional.filter((d) => d !== cls.primary && !named.has(d));
-  if (extra.length > 0) parts.push(`also consistent with an added ${extra.map((d) => DISORDER_WORDS[d]).join(' and ')}`);
+  if (extra.length > 0) {
+    // Disorders added from the anion gap: the gap (and the delta ratio, or an HCO3 not below 24) they rest on.
+    const why: string[] = [];
+    if (gap?.high && extra.includes('metabolic-acidosis')) why.push(`${gapShown}, above ${ANION_GAP_UPPER_NORMAL_MMOL_L} mmol/L`);
+    if (extra.includes('metabolic-alkalosis')) {
+      why.push(gap?.deltaRatio === null || gap?.deltaRatio === undefined ? `${extra.includes('metabolic-acidosis') ? 'with ' : `${gapShown} with `}an HCO3 that has not fallen below ${HCO3_CENTRE_MMOL_L} mmol/L` : `${ratioShown}, above 2`);
+    }
+    parts.push(`also consistent with an added ${extra.map((d) => DISORDER_WORDS[d]).join(' and ')}${why.length > 0 ? ` (${why.join(', ')})` : ''}`);
+  }
   return `${parts.join('; ')}.`;
 }

@@ -1,0 +1,61 @@
+// The acid–base reading names the numbers it rests on, with their units: the gas's pH, PaCO2 and
+// HCO3, the expected range it was read against, and the anion gap and delta ratio where they add
+// or refine a disorder. Expected HCO3 in respiratory disorders: 24 + k × (PaCO2 − 40) ÷ 10 over the
+// span of published coefficients, ± 2 mmol/L (Narins & Emmett, Medicine 1980;59:161–187; Adrogué &
+// Madias, JASN 2010;21:920–923, from memory). Anion gap Na − (Cl + HCO3), upper normal 12 mmol/L
+// (common practice, no source); albumin correction + 2.5 × (4.0 − albumin g/dL) (Figge J et al.,
+// Crit Care Med 1998;26:1807–1810, from memory); delta ratio (AG − 12) ÷ (24 − HCO3) with bands
+// < 0.4, 0.4–0.8, 0.8–2, > 2 (Rastegar A, JASN 2007;18:2429–2431, from memory).
+import { describe, expect, it } from 'vitest';
+import { acidBaseLabel } from '../../server/src/core/service/hints';
+import { readings } from './helpers';
+
+const reading = (gas: string) => readings(`@ 08:00\noxygen room air\n${gas}`)['acid-base'];
+
+describe('respiratory disorders name the HCO3 ranges they were told apart by', () => {
+  it('between the ranges: PaCO2 70, acute 24 + 3 ± 2 = 25–29, chronic 24 + 10.5…15 ± 2 = 32.5–41 mmol/L, HCO3 31.5', () => {
+    const text = reading('abg 7.27/70/60/31.5');
+    expect(text).toBe('Consistent with respiratory acidosis (pH 7.27, PaCO2 70 mmHg, HCO3 31.5 mmol/L); HCO3 31.5 mmol/L is between the acute and chronic ranges (25–29 mmol/L if acute, 33–41 mmol/L if chronic): evolving, or acute on chronic.');
+    expect(acidBaseLabel(text)).toBe('resp. acidosis, acute on chronic?');
+  });
+
+  it('in both ranges: PaCO2 28, acute 24 − 2.4 ± 2 = 19.6–23.6, chronic 24 − 4.8…6 ± 2 = 16–21.2 mmol/L, HCO3 21 — says they overlap, not that the change is too small', () => {
+    const text = reading('abg 7.49/28/45/21');
+    expect(text).toBe('Consistent with respiratory alkalosis (pH 7.49, PaCO2 28 mmHg, HCO3 21.0 mmol/L); HCO3 21.0 mmol/L is within both the acute (20–24 mmol/L) and the chronic (16.0–21.2 mmol/L) range, which overlap here, so acute cannot be told from chronic.');
+    expect(acidBaseLabel(text)).toBe('resp. alkalosis');
+  });
+});
+
+describe('the anion gap and the delta ratio are named where they shape the reading', () => {
+  it('a low albumin turns a normal gap into a high one: AG 140 − (112 + 10) = 18, corrected 18 + 2.5 × (4.0 − 2.0) = 23 mmol/L; delta ratio (23 − 12) ÷ (24 − 10) = 0.79', () => {
+    const text = reading('abg 7.25/23/96/9.8\nlabs na 140, cl 112, hco3 10, albumin 2.0');
+    expect(text).toBe('Consistent with metabolic acidosis with high and normal anion-gap components (pH 7.25, PaCO2 23 mmHg, HCO3 9.8 mmol/L; anion gap 23 mmol/L corrected for albumin, delta ratio 0.79), with the expected respiratory response (PaCO2 within the expected 21–25 mmHg).');
+    expect(acidBaseLabel(text)).toBe('met. acidosis, mixed AG');
+  });
+
+  it('without albumin the same gap is 18 mmol/L and the delta ratio (18 − 12) ÷ 14 = 0.43', () => {
+    expect(reading('abg 7.25/23/96/9.8\nlabs na 140, cl 112, hco3 10')).toMatch(/\(pH 7\.25, PaCO2 23 mmHg, HCO3 9\.8 mmol\/L; anion gap 18 mmol\/L, delta ratio 0\.43\)/);
+  });
+
+  it('a high gap beside a normal pH, PaCO2 and HCO3 names the gap and the HCO3 that has not fallen', () => {
+    // AG 138 − (100 + 24.4) = 13.6, corrected 13.6 + 2.5 × 2 = 18.6 mmol/L; HCO3 24.4 is not below 24.
+    const text = reading('abg 7.36/44/90/24.4\nlabs na 138, cl 100, albumin 2.0');
+    expect(text).toBe('Consistent with normal acid–base balance by pH, PaCO2 and HCO3 (pH 7.36, PaCO2 44 mmHg, HCO3 24.4 mmol/L); also consistent with an added metabolic acidosis and metabolic alkalosis (anion gap 19 mmol/L corrected for albumin, above 12 mmol/L, with an HCO3 that has not fallen below 24 mmol/L).');
+    expect(acidBaseLabel(text)).toBe('normal pH + met. acidosis + met. alkalosis');
+  });
+
+  it('a delta ratio above 2 names it: AG 140 − (95 + 20) = 25, (25 − 12) ÷ (24 − 20) = 3.25', () => {
+    expect(reading('abg 7.33/38/95/20\nlabs na 140, cl 95, hco3 20')).toMatch(/; also consistent with an added metabolic alkalosis \(delta ratio 3\.25, above 2\)\.$/);
+  });
+});
+
+describe('every acid–base reading names pH, PaCO2 and HCO3 with their units', () => {
+  const gases = ['abg 7.25/23/95/10', 'abg 7.25/60/70/26', 'abg 7.43/25/95/16.5', 'abg 7.13/55/70/18', 'abg 7.60/30/80/29', 'abg 7.40/40/95/24.4', 'abg 7.27/70/60/31.5'];
+  it.each(gases)('%s', (gas) => {
+    const text = reading(gas);
+    expect(text).toMatch(/^Consistent with /);
+    expect(text).toMatch(/pH \d\.\d\d[,;]/);
+    expect(text).toMatch(/PaCO2 \d+(?:\.\d)? mmHg/);
+    expect(text).toMatch(/HCO3 \d+\.\d mmol\/L/);
+  });
+});
