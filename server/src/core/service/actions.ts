@@ -213,15 +213,60 @@ function preferredFix(f: Finding): Fix | undefined {
   return f.fixes.find((x) => x.preferred === true);
 }
 
+interface SafeEdits {
+  readonly edits: TextEdit[];
+  readonly codes: string[];
+  readonly count: number;
+  readonly fixed: Finding[];
+}
+
+/**
+ * The ranges of edits taken so far, sorted, so that whether a new edit overlaps one of them is
+ * found by looking at its two neighbours (ranges that do not overlap, sorted by start, also have
+ * their ends in order). A note can have thousands of fixable findings, and code actions are asked
+ * for at every move of the cursor.
+ */
+class TakenRanges {
+  private readonly ranges: Range[] = [];
+
+  /** Where `r` goes among the ranges, sorted by start then end (after equal ones). */
+  private indexOf(r: Range): number {
+    let lo = 0;
+    let hi = this.ranges.length;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      const m = this.ranges[mid]!;
+      const c = comparePositions(m.start, r.start) || comparePositions(m.end, r.end);
+      if (c <= 0) lo = mid + 1;
+      else hi = mid;
+    }
+    return lo;
+  }
+
+  /** Whether `r` overlaps a range taken (touching ranges and insertions at one point do not), as `editsOverlap` says. */
+  overlaps(r: Range): boolean {
+    const i = this.indexOf(r);
+    const before = this.ranges[i - 1];
+    const after = this.ranges[i];
+    return (before !== undefined && comparePositions(r.start, before.end) < 0) || (after !== undefined && comparePositions(after.start, r.end) < 0);
+  }
+
+  add(r: Range): void {
+    this.ranges.splice(this.indexOf(r), 0, r);
+  }
+}
+
 /** Edits of the safe fixes of these findings, skipping any that would overlap an earlier one. */
-function safeEdits(findings: readonly Finding[]): { edits: TextEdit[]; codes: string[]; count: number; fixed: Finding[] } {
+function safeEdits(findings: readonly Finding[]): SafeEdits {
   const edits: TextEdit[] = [];
+  const taken = new TakenRanges();
   const codes = new Set<string>();
   const fixed: Finding[] = [];
   for (const f of findings) {
     const fix = preferredFix(f);
     if (!fix || fix.edits.length === 0) continue;
-    if (editsOverlap([...edits, ...fix.edits])) continue;
+    if (editsOverlap(fix.edits) || fix.edits.some((e) => taken.overlaps(e.range))) continue;
+    for (const e of fix.edits) taken.add(e.range);
     pushAll(edits, fix.edits);
     codes.add(f.code);
     fixed.push(f);
@@ -229,21 +274,46 @@ function safeEdits(findings: readonly Finding[]): { edits: TextEdit[]; codes: st
   return { edits, codes: [...codes], count: fixed.length, fixed };
 }
 
+/** The findings whose preferred fix is safe, and the fix-all edits, kept per analysis (a note that does not change gives the same result). */
+interface FixAll {
+  readonly withSafeFix: readonly Finding[];
+  readonly byCode: Map<string, SafeEdits>;
+  all: SafeEdits | null;
+}
+
+const FIX_ALL = new WeakMap<NoteResult, FixAll>();
+
+function fixAllOf(result: NoteResult): FixAll {
+  let known = FIX_ALL.get(result);
+  if (!known) {
+    const withSafeFix = result.findings.filter((f) => {
+      const fix = preferredFix(f);
+      return fix !== undefined && keepsValues(result, fix);
+    });
+    known = { withSafeFix, byCode: new Map(), all: null };
+    FIX_ALL.set(result, known);
+  }
+  return known;
+}
+
 function fixAllActions(result: NoteResult, range: Range): ActionInfo[] {
-  const withSafeFix = result.findings.filter((f) => {
-    const fix = preferredFix(f);
-    return fix !== undefined && keepsValues(result, fix);
-  });
+  const known = fixAllOf(result);
+  const withSafeFix = known.withSafeFix;
   if (withSafeFix.length === 0) return [];
   const out: ActionInfo[] = [];
   const codesHere = [...new Set(withSafeFix.filter((f) => touches(f.range, range)).map((f) => f.code))];
   for (const code of codesHere) {
-    const { edits, count, fixed } = safeEdits(withSafeFix.filter((f) => f.code === code));
+    let ofCode = known.byCode.get(code);
+    if (!ofCode) {
+      ofCode = safeEdits(withSafeFix.filter((f) => f.code === code));
+      known.byCode.set(code, ofCode);
+    }
+    const { edits, count, fixed } = ofCode;
     if (count < 2) continue;
     const title = checkByCodeOrAlias(code)?.title ?? code;
     out.push({ title: `Fix all in the note: ${title} (${code}, ${count} places)`, kind: 'quickfix', edits, findingCodes: [code], resolves: fixed });
   }
-  const all = safeEdits(withSafeFix);
+  const all = (known.all ??= safeEdits(withSafeFix));
   if (all.count > 0) out.push({ title: `Apply every safe fix in the note (${all.count})`, kind: 'source.fixAll', edits: all.edits, findingCodes: all.codes, resolves: all.fixed });
   return out;
 }
