@@ -33,7 +33,7 @@ export async function activate(context: vscode.ExtensionContext): Promise<void> 
   };
   const trends = new TrendView(context.extensionUri, send);
   const status = new TimepointStatus(send);
-  context.subscriptions.push(status, trends, vscode.window.registerWebviewPanelSerializer(TREND_VIEW_TYPE, trends));
+  context.subscriptions.push(status, trends);
 
   context.subscriptions.push(
     vscode.commands.registerCommand('pneumark.restartServer', () => restartServer(client, crashes, output)),
@@ -60,6 +60,9 @@ export async function activate(context: vscode.ExtensionContext): Promise<void> 
       if (choice === 'Show Output') output.show();
     });
   }
+  // A trend view restored after a reload asks the server for its note at once: it is handed
+  // over once the server runs (VS Code keeps the panel waiting until then).
+  context.subscriptions.push(vscode.window.registerWebviewPanelSerializer(TREND_VIEW_TYPE, trends));
   status.schedule();
 }
 

@@ -37,7 +37,7 @@ export class TimepointStatus implements vscode.Disposable {
     this.item.name = 'Pneumark timepoint';
     this.item.command = 'pneumark.showTrends';
     this.disposables.push(
-      vscode.window.onDidChangeTextEditorSelection((e) => { if (e.textEditor === vscode.window.activeTextEditor) this.schedule(); }),
+      vscode.window.onDidChangeTextEditorSelection((e) => { if (e.textEditor.document.languageId === LANGUAGE) this.schedule(); }),
       vscode.window.onDidChangeActiveTextEditor(() => this.schedule()),
       // A note whose language mode is changed is closed and opened again with the new language.
       vscode.workspace.onDidOpenTextDocument(() => this.schedule()),

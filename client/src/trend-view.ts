@@ -62,11 +62,11 @@ export class TrendView implements vscode.Disposable, vscode.WebviewPanelSerializ
   }
 
   /** Restores the panel after a reload of the window (VS Code calls this). */
-  async deserializeWebviewPanel(panel: vscode.WebviewPanel, state: unknown): Promise<void> {
+  deserializeWebviewPanel(panel: vscode.WebviewPanel, state: unknown): Promise<void> {
     if (this.panel) {
       // One trend view at a time: a second restored panel is not needed.
       panel.dispose();
-      return;
+      return Promise.resolve();
     }
     panel.webview.options = this.options();
     this.adopt(panel);
@@ -82,12 +82,15 @@ export class TrendView implements vscode.Disposable, vscode.WebviewPanelSerializ
       if (uri) {
         this.uri = uri;
         this.panel!.title = `Trends: ${this.name(uri)}`;
-        await this.refresh();
-        return;
+        void this.refresh();
+        return Promise.resolve();
       }
     }
+    // Nothing here is awaited: VS Code shows the page only once this returns, and a message to
+    // a page not shown yet waits until it is (awaiting one here would keep the panel loading).
     if (active && active.languageId === LANGUAGE) this.follow(active);
-    else await this.post({ type: 'notice', message: 'Open a Pneumark note and run "Pneumark: Show Trends" to see its trends.' });
+    else void this.post({ type: 'notice', message: 'Open a Pneumark note and run "Pneumark: Show Trends" to see its trends.' });
+    return Promise.resolve();
   }
 
   /** Called when the server has analysed a note: refresh if it is the one on show. */

@@ -35,6 +35,10 @@ describe('Pneumark in VS Code', () => {
     const item = wb.page.locator('.statusbar-item', { hasText: 'P/F 93' });
     await item.first().waitFor({ timeout: 30000 });
     expect(await item.first().textContent()).toMatch(/pH 7\.29/);
+    // A screen reader reads the figures as the item's name.
+    const named = wb.page.locator('#workbench\\.parts\\.statusbar [aria-label^="Pneumark timepoint"]').first();
+    await named.waitFor({ timeout: 15000 });
+    expect(await named.getAttribute('aria-label')).toMatch(/^Pneumark timepoint admitted to intensive care, intubated: P\/F 93, .*pH 7\.29/);
   });
 
   it('lists findings in the Problems panel with our codes', async () => {
@@ -126,7 +130,68 @@ describe('Pneumark in VS Code', () => {
     await expect.poll(async () => (await oxygenation.locator('.u-legend .u-value').allTextContents()).join(' '), { timeout: 20000 }).toMatch(/\d+(\.\d)? kPa \d+(\.\d)? kPa$/);
     await screenshot(wb.page, '10-trends-kpa');
   });
+
+  it('follows the note the user switches to, and goes to a timepoint from the keyboard', async () => {
+    await openFile(wb.page, 'icu-ventilated-lung-injury.pneu');
+    await expect.poll(async () => (await texts('#title')).join(), { timeout: 30000 }).toMatch(/icu-ventilated-lung-injury\.pneu/);
+    // The table under the charts: a button per timepoint, reached with Tab and pressed with Enter.
+    const frame = await frameWith('button.go');
+    const buttons = frame.locator('button.go');
+    await expect.poll(() => buttons.count(), { timeout: 30000 }).toBe(4);
+    await buttons.nth(1).focus();
+    await wb.page.keyboard.press('Tab');
+    expect(await frame.evaluate('document.activeElement?.textContent')).toBe('morning round');
+    await wb.page.keyboard.press('Enter');
+    const selection = wb.page.locator('#status\\.editor\\.selection');
+    await expect.poll(async () => (await selection.textContent())?.trim(), { timeout: 20000 }).toMatch(/^Ln 16, Col 1/);
+    await screenshot(wb.page, '11-trends-table');
+  });
+
+  it('comes back with its note after the window is reloaded', async () => {
+    await wb.page.reload();
+    await wb.page.locator('.monaco-workbench').waitFor({ timeout: 60000 });
+    await expect.poll(async () => (await texts('#title')).join(), { timeout: 90000 }).toMatch(/icu-ventilated-lung-injury\.pneu/);
+    await expect.poll(canvases, { timeout: 60000 }).toBeGreaterThanOrEqual(4);
+    await screenshot(wb.page, '12-trends-after-reload');
+  });
+
+  it('opens the bundled check documentation at the check picked', async () => {
+    await openFile(wb.page, 'icu-ventilated-lung-injury.pneu');
+    await runCommand(wb.page, 'Pneumark: Open Check Documentation…');
+    const input = wb.page.locator('.quick-input-widget input');
+    await input.fill('PN405');
+    await wb.page.locator('.quick-input-list .monaco-list-row', { hasText: 'PN405' }).first().waitFor({ timeout: 15000 });
+    await wb.page.keyboard.press('Enter');
+    // The preview scrolls to the check's heading (not the top of the list of checks).
+    await expect.poll(async () => {
+      for (const f of wb.page.frames()) {
+        const heading = f.locator('h2', { hasText: /^PN405 / }).first();
+        if (await heading.count().catch(() => 0) === 0) continue;
+        // Runs in the page: the heading's top is within the preview's window.
+        return heading.evaluate((el) => {
+          const top = (el as unknown as { getBoundingClientRect(): { top: number } }).getBoundingClientRect().top;
+          return top >= 0 && top < (globalThis as unknown as { innerHeight: number }).innerHeight;
+        });
+      }
+      return false;
+    }, { timeout: 60000 }).toBe(true);
+    await screenshot(wb.page, '13-check-docs');
+  });
 });
+
+/** The text of the elements a selector finds, in every frame. */
+async function texts(selector: string): Promise<string[]> {
+  const out: string[] = [];
+  for (const frame of wb.page.frames()) out.push(...(await frame.locator(selector).allTextContents().catch(() => [])));
+  return out;
+}
+
+/** The charts drawn, in every frame. */
+async function canvases(): Promise<number> {
+  let count = 0;
+  for (const frame of wb.page.frames()) count += await frame.locator('canvas').count().catch(() => 0);
+  return count;
+}
 
 /** The accessible names of the trend view's panels (title and axis units), in every frame. */
 async function panelNames(): Promise<string[]> {

@@ -176,12 +176,26 @@ export class FakeWebviewPanel {
   private readonly disposeEmitter = new EventEmitter<void>();
   private readonly messageEmitter = new EventEmitter<unknown>();
   readonly onDidDispose = this.disposeEmitter.event;
+  /**
+   * A page VS Code has not shown yet (a panel being restored): as in VS Code, a message posted
+   * to it is answered only once it is shown (`load`).
+   */
+  initializing = false;
+  private readonly waiting: (() => void)[] = [];
+  load(): void {
+    this.initializing = false;
+    for (const resolve of this.waiting.splice(0)) resolve();
+  }
   readonly webview = {
     html: '',
     options: {} as Record<string, unknown>,
     cspSource: 'https://fake.vscode-cdn.net',
     asWebviewUri: (uri: Uri) => Uri.parse(`https://fake.vscode-cdn.net${uri.path}`),
-    postMessage: async (message: unknown) => { this.posted.push(message); return true; },
+    postMessage: async (message: unknown) => {
+      this.posted.push(message);
+      if (this.initializing) await new Promise<void>((resolve) => this.waiting.push(resolve));
+      return true;
+    },
     onDidReceiveMessage: this.messageEmitter.event,
   };
   constructor(readonly viewType: string, title: string, readonly options: Record<string, unknown>) {
