@@ -37,3 +37,22 @@ describe('the A–a gradient beside its upper normal for age', () => {
     expect(numberText(derived('patient age 40 y\n@ 08:00\noxygen room air\nabg 7.20/70/55/27', 'aa_gradient_upper_normal'))).toBe('14');
   });
 });
+
+describe('ventilator values beside the limits their checks name', () => {
+  it('a driving pressure of 30.4 − 15 = 15.4 cmH2O is shown as 15.4 beside the 15 cmH2O flag (common practice, after Amato MBP et al., NEJM 2015;372:747–755, from memory), as PN405 says it', () => {
+    const note = '@ 08:00\nvent mode VC, vt 400 mL, peep 15, plateau 30.4, fio2 0.5';
+    expect(numberText(derived(note, 'driving_pressure'))).toBe('15.4');
+    expect(numberText(derived('@ 08:00\nvent mode VC, vt 400 mL, peep 10, plateau 27, fio2 0.5', 'driving_pressure'))).toBe('17');
+  });
+
+  it('VT per kg predicted body weight beside the 8 mL/kg top of the lung-protective range (ARDS Network, NEJM 2000;342:1301–1308, from memory)', () => {
+    // Female, 160 cm: PBW 45.5 + 0.91 × (160 − 152.4) = 52.416 kg; 421 mL ÷ 52.416 = 8.032 mL/kg.
+    const female = 'patient sex female, height 160 cm\n@ 08:00\nvent mode VC, vt 421 mL, peep 8, fio2 0.4';
+    expect(derived(female, 'predicted_body_weight').value).toBeCloseTo(52.416, 3);
+    expect(numberText(derived(female, 'vt_per_kg_pbw'))).toBe('8.03');
+    // Male, 180 cm: PBW 50 + 0.91 × 27.6 = 75.116 kg; 450 mL ÷ 75.116 = 5.99 mL/kg.
+    const male = 'patient sex male, height 180 cm\n@ 08:00\nvent mode VC, vt 450 mL, peep 8, fio2 0.4';
+    expect(derived(male, 'predicted_body_weight').value).toBeCloseTo(75.116, 3);
+    expect(numberText(derived(male, 'vt_per_kg_pbw'))).toBe('6.0');
+  });
+});

@@ -1,5 +1,7 @@
 /** Derived values of ventilation and respiratory mechanics. */
 import {
+  DRIVING_PRESSURE_FLAG_CMH2O,
+  LUNG_PROTECTIVE_VT_MAX_ML_PER_KG,
   SOURCES,
   airwayResistance,
   complianceDynamic,
@@ -13,6 +15,7 @@ import {
   vtPerKgPbw,
 } from '../physiology';
 import { defineDerived } from './context';
+import { decimalsAgainst } from '../util/format';
 
 export const minuteVentilation = defineDerived({
   id: 'minute_ventilation',
@@ -68,7 +71,10 @@ export const vtPerKg = defineDerived({
     const vt = c.field('vt', 'VT');
     const p = c.derived('predicted_body_weight', 'PBW');
     if (!vt || !p) return c.missing([vt, 'vt'], [p, c.lacking('predicted_body_weight')]);
-    return c.value(vtPerKgPbw(vt.value, p.value), [vt, p], { notes: ['lung-protective target 6 mL/kg (4–8) in the ARDS Network protocol'] });
+    const perKg = vtPerKgPbw(vt.value, p.value);
+    // Shown beside the 8 mL/kg top of the lung-protective range (PN403): 8.04 as 8.04, not 8.0.
+    const decimals = perKg === null ? undefined : decimalsAgainst(perKg, 1, LUNG_PROTECTIVE_VT_MAX_ML_PER_KG);
+    return c.value(perKg, [vt, p], { notes: ['lung-protective target 6 mL/kg (4–8) in the ARDS Network protocol'], decimals });
   },
 });
 
@@ -87,7 +93,9 @@ export const drivingPressureDef = defineDerived({
     const peep = c.field('peep', 'PEEP');
     if (!plat) return { kind: 'na', reason: 'needs a plateau pressure (inspiratory hold)' };
     if (!peep) return c.missing([peep, 'peep']);
-    return c.value(drivingPressure(plat.value, peep.value), [plat, peep]);
+    const dp = drivingPressure(plat.value, peep.value);
+    // Shown beside the 15 cmH2O flag (PN405): 15.4 as 15.4, not as 15 next to "above 15".
+    return c.value(dp, [plat, peep], { decimals: dp === null ? undefined : decimalsAgainst(dp, 0, DRIVING_PRESSURE_FLAG_CMH2O) });
   },
 });
 

@@ -36,6 +36,12 @@ export type Sex = 'male' | 'female';
 /** Plateau pressure limit of the ARDS Network protocol (cmH2O). Source: `ardsnet-2000-plateau`. */
 export const PLATEAU_LIMIT_CMH2O = 30;
 
+/** Top of the lung-protective tidal volume range, mL per kg predicted body weight (target 6, range 4–8). Source: `ardsnet-2000`. */
+export const LUNG_PROTECTIVE_VT_MAX_ML_PER_KG = 8;
+
+/** Driving pressure commonly flagged (cmH2O), after `amato-2015`: the flag itself is common practice, no source. */
+export const DRIVING_PRESSURE_FLAG_CMH2O = 15;
+
 /** Height (cm) at which the ARDSNet formulas give their base weights (60 inches). Source: `ardsnet-2000`. */
 export const PBW_REFERENCE_HEIGHT_CM = 152.4;
 /** Joules in one L·cmH2O (98.0665 Pa × 0.001 m³ = 0.0980665 J, rounded), the power equation's factor. Source: `gattinoni-2016`. */
