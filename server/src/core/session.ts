@@ -77,11 +77,16 @@ export class NoteSession {
       this.lastChange = null; // it holds the old text
       const { timeline, cache } = buildTimelineIncremental(tree, this.settings, this.timelineCache);
       this.timelineCache = cache;
+      // A timepoint the timeline reused is the object of the last run, whose findings are kept.
+      // (The cache counts blocks, and the lines before the first `@` are a block too.)
+      const timepoints = timeline.timepoints;
+      let reused = 0;
+      for (let i = 0; i < timepoints.length; i++) if (this.findings.has(timepoints[i]!)) reused++;
       // Derived values are computed for the timepoints whose findings are not kept from the last
       // run, and then dropped (see NoteAnalysis.derivation).
       this.last = runChecks({ tree, timeline, derivation: deriverFor(timeline, this.settings) }, this.settings, undefined, this.findings);
       this.lastText = text;
-      this.statsValue = { parsedLines: parsed, reusedTimepoints: cache.reused, timepoints: timeline.timepoints.length };
+      this.statsValue = { parsedLines: parsed, reusedTimepoints: reused, timepoints: timepoints.length };
       return this.last;
     } catch (error) {
       // The parse may have moved the line starts to `text` already: the next update must not read
