@@ -1,0 +1,42 @@
+// Type 1 and type 2 respiratory failure and the mechanism of hypoxaemia at sea level (PB 760 mmHg)
+// and at altitude (PB 600 mmHg), for invented patients. Inspired PO2 (humidified) = FiO2 × (PB − 47):
+// 0.21 × 713 = 149.7 mmHg at 760, 0.21 × 553 = 116.1 mmHg at 600 (dry: 0.21 × PB = 159.6 and 126 mmHg)
+// (common practice). Alveolar PO2 = PiO2 − PaCO2 ÷ 0.8 (simplified alveolar gas equation; Fenn, Rahn
+// & Otis 1946, Riley & Cournand 1949, from memory). Upper normal A–a gradient age ÷ 4 + 4 (common
+// practice, no source). Hypoxaemia PaO2 < 60 mmHg, hypercapnia PaCO2 > 50 mmHg (common practice, no
+// source). Low inspired oxygen: PiO2 below 140 mmHg (Pneumark's convention, interpret.ts).
+import { describe, expect, it } from 'vitest';
+import { derived, readings } from './helpers';
+
+const at = (pb: number, gas: string) => `patient age 40 y\nplace barometric ${pb} mmHg\n@ 08:00\noxygen room air\n${gas}`;
+
+describe('at PB 600 mmHg', () => {
+  it('inspired PO2 is 116 mmHg', () => {
+    expect(derived(at(600, 'abg 7.39/40/58/24'), 'pio2').value).toBeCloseTo(116.13, 1);
+  });
+
+  it('hypoxaemia with a normal PaCO2 and gradient is type 1 from low inspired oxygen alone (PAO2 116.1 − 50 = 66.1, A–a 8 mmHg)', () => {
+    const r = readings(at(600, 'abg 7.39/40/58/24'));
+    expect(r['respiratory-failure']).toBe('Consistent with type 1 (hypoxaemic) respiratory failure: hypoxaemia with normal or low PaCO2.');
+    expect(r['hypoxaemia-mechanism']).toBe('Hypoxaemia consistent with low inspired oxygen (PiO2 116 mmHg). The A–a gradient (8 mmHg) is within the age-based normal of 14 mmHg.');
+  });
+
+  it('hypoventilation there is type 2, from low inspired oxygen and hypoventilation with a normal gradient (PAO2 116.1 − 72.5 = 43.6, A–a 4 mmHg)', () => {
+    const r = readings(at(600, 'abg 7.30/58/40/27.8'));
+    expect(r['respiratory-failure']).toBe('Consistent with type 2 (hypercapnic) respiratory failure: hypoxaemia with hypercapnia.');
+    expect(r['hypoxaemia-mechanism']).toBe('Hypoxaemia consistent with a mix of low inspired oxygen (PiO2 116 mmHg) and hypoventilation (PaCO2 58 mmHg). The A–a gradient (4 mmHg) is within the age-based normal of 14 mmHg.');
+  });
+
+  it('a raised gradient there adds V/Q mismatch or shunt (PAO2 116.1 − 37.5 = 78.6, A–a 34 mmHg)', () => {
+    const r = readings(at(600, 'abg 7.48/30/45/22.3'));
+    expect(r['respiratory-failure']).toBe('Consistent with type 1 (hypoxaemic) respiratory failure: hypoxaemia with normal or low PaCO2.');
+    expect(r['hypoxaemia-mechanism']).toBe('Hypoxaemia consistent with a mix of low inspired oxygen (PiO2 116 mmHg) and a raised A–a gradient (34 mmHg, above 14 mmHg): V/Q mismatch, shunt or a diffusion limit.');
+  });
+});
+
+describe('the same gas at PB 760 mmHg', () => {
+  it('PaCO2 58, PaO2 40: PAO2 149.7 − 72.5 = 77.2, A–a 37 mmHg: hypoventilation and a raised gradient, not low inspired oxygen', () => {
+    const r = readings(at(760, 'abg 7.30/58/40/27.8'));
+    expect(r['hypoxaemia-mechanism']).toBe('Hypoxaemia consistent with a mix of hypoventilation (PaCO2 58 mmHg) and a raised A–a gradient (37 mmHg, above 14 mmHg): V/Q mismatch, shunt or a diffusion limit.');
+  });
+});
