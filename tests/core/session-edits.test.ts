@@ -277,7 +277,7 @@ function edit(text: string, d: Dice, history: readonly string[]): Edit {
       const k = d.int(n);
       const l = lines[k]!;
       const p = d.int(l.text.length + 1);
-      l.text = d.chance(0.5) ? l.text.slice(0, p) + d.pick(['x', ' ', ',', '/', '.', '#', '%', '0', 'é', '\u00a0', '\t']) + l.text.slice(p) : l.text.slice(0, p) + l.text.slice(p + 1);
+      l.text = d.chance(0.5) ? l.text.slice(0, p) + d.pick(['x', ' ', ',', '/', '.', '#', '%', '0', 'é', '\u00a0', '\t', '\u0000', '\ud800', '@', '\r']) + l.text.slice(p) : l.text.slice(0, p) + l.text.slice(p + 1);
       return one('a keystroke');
     }
   }
