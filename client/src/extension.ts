@@ -9,11 +9,12 @@ import {
   RevealOutputChannelOn,
   TransportKind,
   type LanguageClientOptions,
+  type Middleware,
   type ServerOptions,
 } from 'vscode-languageclient/node';
 import { ANALYSED_NOTIFICATION, type AnalysedParams } from '../../server/src/protocol';
 import { convertNoteUnits, insertTimepoint, openCheckDocs } from './commands';
-import { crashHandler, restartServer, traceChannel, type CrashHandler } from './server-process';
+import { crashHandler, pneumarkSettingsOnly, restartServer, traceChannel, type CrashHandler } from './server-process';
 import { ReanalysisTracker } from './reanalysis';
 import { LANGUAGE, TimepointStatus, type Requester } from './status';
 import { TREND_VIEW_TYPE, TrendView } from './trend-view';
@@ -24,8 +25,9 @@ export async function activate(context: vscode.ExtensionContext): Promise<void> 
   const output = vscode.window.createOutputChannel('Pneumark', { log: true });
   const trace = traceChannel(output);
   const crashes = crashHandler(output);
-  context.subscriptions.push(output, trace);
-  client = createClient(output, trace, crashes, context.asAbsolutePath('dist/server.js'));
+  const settingsChanges = pneumarkSettingsOnly();
+  context.subscriptions.push(output, trace, settingsChanges);
+  client = createClient(output, trace, crashes, settingsChanges.middleware, context.asAbsolutePath('dist/server.js'));
   // Requests go to the server only while it runs (not while it starts, stops or is stopped).
   const send = (): Requester | null => {
     const c = client;
@@ -93,7 +95,7 @@ function refreshInlayHints(uri: string): void {
   client.getFeature(InlayHintRequest.method).getProvider(document)?.onDidChangeInlayHints.fire();
 }
 
-function createClient(output: vscode.LogOutputChannel, trace: vscode.LogOutputChannel, crashes: CrashHandler, module: string): LanguageClient {
+function createClient(output: vscode.LogOutputChannel, trace: vscode.LogOutputChannel, crashes: CrashHandler, didChangeConfiguration: NonNullable<NonNullable<Middleware['workspace']>['didChangeConfiguration']>, module: string): LanguageClient {
   const serverOptions: ServerOptions = {
     // stdio: the server writes its messages as ASCII JSON there, which keeps big notes cheap to publish.
     run: { module, transport: TransportKind.stdio },
@@ -106,6 +108,7 @@ function createClient(output: vscode.LogOutputChannel, trace: vscode.LogOutputCh
     traceOutputChannel: trace,
     revealOutputChannelOn: RevealOutputChannelOn.Never,
     errorHandler: crashes,
+    middleware: { workspace: { didChangeConfiguration } },
   };
   return new LanguageClient('pneumark', 'Pneumark', serverOptions, clientOptions);
 }

@@ -127,3 +127,25 @@ export function traceChannel(output: vscode.LogOutputChannel): vscode.LogOutputC
     },
   };
 }
+
+/**
+ * Passes on to the server only the settings changes that concern it. The server registers for
+ * `workspace/didChangeConfiguration` without naming a section, so the language client sent it a
+ * notification for every change of any setting (a font size, another extension's option), and the
+ * server asked again for the settings of every open note and analysed each one again. Created
+ * before the language client, its listener runs first and notes whether the change touches
+ * `pneumark.*`; the middleware then lets only those through.
+ */
+export function pneumarkSettingsOnly(): vscode.Disposable & {
+  readonly middleware: (sections: string[] | undefined, next: (sections: string[] | undefined) => Promise<void>) => Promise<void>;
+} {
+  let concernsPneumark = true;
+  const listener = vscode.workspace.onDidChangeConfiguration((e) => { concernsPneumark = e.affectsConfiguration('pneumark'); });
+  return {
+    middleware: async (sections, next) => {
+      if (!concernsPneumark) return;
+      await next(sections);
+    },
+    dispose: () => listener.dispose(),
+  };
+}

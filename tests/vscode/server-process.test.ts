@@ -8,7 +8,7 @@ vi.mock('vscode-languageclient/node', () => ({
   ErrorAction: { Continue: 1, Shutdown: 2 },
   CloseAction: { DoNotRestart: 1, Restart: 2 },
 }));
-const { crashHandler, restartServer, traceChannel, MAX_RESTARTS } = await import('../../client/src/server-process');
+const { crashHandler, pneumarkSettingsOnly, restartServer, traceChannel, MAX_RESTARTS } = await import('../../client/src/server-process');
 
 /** The Pneumark output as a log channel that records its lines. */
 function output() {
@@ -122,5 +122,23 @@ describe('the trace setting', () => {
     levelChanged.fire(LogLevel.Trace);
     expect(trace.logLevel).toBe(LogLevel.Trace);
     trace.dispose();
+  });
+});
+
+describe('settings changes sent to the server', () => {
+  it('are only those of pneumark.*: another setting does not make the server analyse every note again', async () => {
+    const filter = pneumarkSettingsOnly();
+    const sent: (string[] | undefined)[] = [];
+    const next = async (sections: string[] | undefined) => { sent.push(sections); };
+    const change = (section: string) => state.events.configuration.fire({ affectsConfiguration: (s) => section === s || section.startsWith(`${s}.`) });
+    change('editor.fontSize');
+    await filter.middleware(undefined, next);
+    expect(sent).toEqual([]);
+    change('pneumark.gasUnit');
+    await filter.middleware(undefined, next);
+    change('pneumark.hints.mechanics');
+    await filter.middleware(undefined, next);
+    expect(sent).toEqual([undefined, undefined]);
+    filter.dispose();
   });
 });
