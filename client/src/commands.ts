@@ -31,7 +31,7 @@ export async function convertNoteUnits(send: Requester | null): Promise<void> {
       { label: 'mmHg', description: 'millimetres of mercury' },
       { label: 'kPa', description: 'kilopascals' },
     ],
-    { title: 'Convert every gas pressure of this note to', placeHolder: 'the unit for PaO2, PaCO2, PAO2, PvO2, EtCO2 and barometric pressure' },
+    { title: 'Convert every gas pressure of this note to', placeHolder: 'PaO2, PaCO2, venous PO2 and PCO2, EtCO2 and barometric pressure, and the units gas line' },
   );
   if (!pick) return;
   const to = pick.label as ConvertUnitsParams['to'];
