@@ -14,7 +14,7 @@ import type { StatedValue } from '../analysis/model';
 import { checkByCodeOrAlias } from '../checks/registry';
 import { fieldById, type FieldDef } from '../fields/registry';
 import { comparePositions, type Finding, type Fix, type Range, type TextEdit } from '../types';
-import { allStated, isValidPosition, itemAt, lineAt } from './locate';
+import { allStated, isValidPosition, itemAt, lineAt, statedOnLine } from './locate';
 import { parseLine } from '../syntax/parser';
 import type { LineNode } from '../syntax/tree';
 import { applyEdits, editsOverlap } from './text-edits';
@@ -61,7 +61,7 @@ function valueActions(result: NoteResult, range: Range): ActionInfo[] {
   let onGas = node.section === 'units';
 
   if (hit) {
-    const stated = allStated(result).find((s) => s.line === line && s.item === hit.item) ?? null;
+    const stated = statedOnLine(result, line).find((s) => s.item === hit.item) ?? null;
     const field = stated ? fieldById(stated.fieldId) : undefined;
     if (stated && field) {
       onGas ||= field.dimension === 'gas-pressure';
@@ -78,11 +78,20 @@ function valueActions(result: NoteResult, range: Range): ActionInfo[] {
     const stated = allStated(result);
     for (const to of ['mmHg', 'kPa'] as const) {
       if (!stated.some((s) => fieldById(s.fieldId)?.dimension === 'gas-pressure' && s.readUnit !== null && s.readUnit !== to && (fieldById(s.fieldId)?.units?.includes(to) ?? false))) continue;
-      const edits = convertNoteUnits(result, to);
+      const edits = noteConversion(result, to);
       if (edits.length > 0) out.push({ title: `Convert every gas pressure in the note to ${to}`, kind: 'refactor.rewrite', edits });
     }
   }
   return out;
+}
+
+/** Whole-note conversions, kept per analysis: code actions are asked for at every move of the cursor. */
+const CONVERSIONS = new WeakMap<NoteResult, Partial<Record<GasUnit, TextEdit[]>>>();
+
+function noteConversion(result: NoteResult, to: GasUnit): TextEdit[] {
+  let known = CONVERSIONS.get(result);
+  if (!known) CONVERSIONS.set(result, (known = {}));
+  return (known[to] ??= convertNoteUnits(result, to));
 }
 
 function keyOf(s: StatedValue): string {

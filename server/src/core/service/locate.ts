@@ -70,9 +70,29 @@ export function allStated(result: NoteResult): StatedValue[] {
   return [...t.header, ...t.timepoints.flatMap((tp) => tp.stated)];
 }
 
+const NO_STATED: readonly StatedValue[] = Object.freeze([]);
+
+/** The stated values of each line, kept per analysis (features ask for one line's values many times). */
+const BY_LINE = new WeakMap<NoteResult, Map<number, StatedValue[]>>();
+
+/** The stated values read from one line, in reading order. */
+export function statedOnLine(result: NoteResult, line: number): readonly StatedValue[] {
+  let byLine = BY_LINE.get(result);
+  if (!byLine) {
+    byLine = new Map();
+    for (const s of allStated(result)) {
+      const list = byLine.get(s.line);
+      if (list) list.push(s);
+      else byLine.set(s.line, [s]);
+    }
+    BY_LINE.set(result, byLine);
+  }
+  return byLine.get(line) ?? NO_STATED;
+}
+
 /** The stated value read from an item (null when the item could not be read). */
 export function statedOf(result: NoteResult, line: number, item: ItemNode): StatedValue | null {
-  for (const s of allStated(result)) if (s.line === line && (s.item === item || (s.item.span.start === item.span.start && s.item.keyName === item.keyName))) return s;
+  for (const s of statedOnLine(result, line)) if (s.item === item || (s.item.span.start === item.span.start && s.item.keyName === item.keyName)) return s;
   return null;
 }
 

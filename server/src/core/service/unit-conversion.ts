@@ -17,7 +17,7 @@ import type { TextEdit } from '../types';
 import { formatNumber, formatShort } from '../util/format';
 import { ITEM_COLUMN } from './format';
 import { within } from '../analysis/bounds';
-import { allStated, lineRange } from './locate';
+import { allStated, lineRange, statedOnLine } from './locate';
 
 export type GasUnit = 'mmHg' | 'kPa';
 
@@ -87,7 +87,7 @@ export function shorthandPressures(result: NoteResult, node: LineNode): Shorthan
   const group = node.items.filter((i) => i.implied === 'shorthand');
   const last = group[group.length - 1];
   if (!last?.value) return null;
-  const stated = allStated(result).filter((s) => s.line === node.line && s.item.implied === 'shorthand' && (s.item.keyName === 'pco2' || s.item.keyName === 'po2'));
+  const stated = statedOnLine(result, node.line).filter((s) => s.item.implied === 'shorthand' && (s.item.keyName === 'pco2' || s.item.keyName === 'po2'));
   if (stated.length === 0) return null;
   const unit = group.find((i) => i.unit)?.unit ?? null;
   return { node, parts: stated, unit, end: last.value.span.end };
