@@ -53,4 +53,20 @@ describe('expected compensation of a gas that PN402 reports', () => {
     const d = derivation(ok).derived.find((x) => x.id === 'paco2_expected');
     expect(d?.range).toEqual({ low: 21, centre: 23, high: 25 });
   });
+
+  it('keeps the anion gap and delta ratio from the gas HCO3, with a note that PN402 doubts it', () => {
+    // AG = 140 − (104 + 18) = 18 mmol/L (common practice, no source); Δ ratio (18 − 12) ÷ (24 − 18) = 1.0
+    // (Rastegar A, JASN 2007;18:2429–2431, from memory).
+    const note = `${metabolic}\nlabs na 140, cl 104`;
+    const d = derivation(note);
+    const gap = d.derived.find((x) => x.id === 'anion_gap');
+    expect(gap?.value).toBe(18);
+    expect(gap?.notes).toContain('uses the gas HCO3, which does not fit the pH and PaCO2 (see PN402)');
+    expect(d.derived.find((x) => x.id === 'delta_ratio')?.notes).toContain('uses the gas HCO3, which does not fit the pH and PaCO2 (see PN402)');
+  });
+
+  it('says nothing of PN402 where the laboratory gave its own bicarbonate', () => {
+    const gap = derivation(`${metabolic}\nlabs na 140, cl 104, hco3 18`).derived.find((x) => x.id === 'anion_gap');
+    expect(gap?.notes).toEqual(['without potassium']);
+  });
 });

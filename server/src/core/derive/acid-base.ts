@@ -1,6 +1,7 @@
 /** Derived values of acid–base balance. The interpretation itself lives in interpret.ts. */
 import {
   SOURCES,
+  acidBaseConsistency,
   anionGap,
   anionGapAlbuminCorrected,
   classifyAcidBase,
@@ -18,6 +19,20 @@ import type { Kept } from '../util/small-store';
 /** Serum bicarbonate when the laboratory gave one, else the gas analyser's. */
 function bicarbonate(c: DeriveContext): Term | null {
   return c.field('hco3_serum', 'HCO3') ?? c.field('hco3', 'HCO3');
+}
+
+/**
+ * A note for values that take the gas analyser's HCO3 (no laboratory bicarbonate is stated) when
+ * that HCO3 does not fit the gas's pH and PaCO2 (PN402): the value is worked out, but is only as
+ * good as that HCO3. Checked directly, not through the classification, which itself reads the gap.
+ */
+function gasHco3Doubted(c: DeriveContext, hco3: Term): string[] {
+  if (hco3.fieldId !== 'hco3') return [];
+  const ph = c.field('ph');
+  const paco2 = c.field('paco2');
+  if (!ph || !paco2) return [];
+  const fit = acidBaseConsistency(ph.value, paco2.value, hco3.value);
+  return fit && !fit.consistent ? ['uses the gas HCO3, which does not fit the pH and PaCO2 (see PN402)'] : [];
 }
 
 /** The acid–base classification of this timepoint's arterial gas (computed once per timepoint). */
@@ -105,7 +120,7 @@ export const anionGapDef = defineDerived({
     const cl = c.field('cl', 'Cl');
     const hco3 = bicarbonate(c);
     if (!na || !cl || !hco3) return c.missing([na, 'na'], [cl, 'cl'], [hco3, 'hco3']);
-    return c.value(anionGap(na.value, cl.value, hco3.value), [na, cl, hco3], { notes: ['without potassium'] });
+    return c.value(anionGap(na.value, cl.value, hco3.value), [na, cl, hco3], { notes: ['without potassium', ...gasHco3Doubted(c, hco3)] });
   },
 });
 
@@ -144,7 +159,8 @@ export const deltaRatioDef = defineDerived({
     if (!ag || !hco3) return c.missing([ag, c.lacking('anion_gap')], [hco3, 'hco3']);
     if (hco3.value >= 24) return { kind: 'na', reason: 'HCO3 is not below 24 mmol/L' };
     if (ag.value <= 12) return { kind: 'na', reason: 'the anion gap is not raised' };
-    return c.value(deltaRatio(ag.value, hco3.value), [ag, hco3]);
+    const notes = gasHco3Doubted(c, hco3);
+    return c.value(deltaRatio(ag.value, hco3.value), [ag, hco3], notes.length > 0 ? { notes } : undefined);
   },
 });
 
