@@ -71,8 +71,10 @@ describe('the value under the cursor in the other unit', () => {
 
   it('FiO2: fraction ↔ percentage', () => {
     expect(after('vent fio2 0.|4', 'Write fio2 in %')).toBe('vent fio2 40 %');
-    expect(after('vent fio2 40 |%', 'Write fio2 in a fraction')).toBe('vent fio2 0.40');
-    expect(after('vent fio2 2|8', 'Write fio2 in a fraction')).toBe('vent fio2 0.28');
+    expect(after('vent fio2 40 |%', 'Write fio2 as a fraction: 0.40')).toBe('vent fio2 0.40');
+    expect(after('vent fio2 2|8', 'Write fio2 as a fraction: 0.28')).toBe('vent fio2 0.28');
+    // Said once: not 'in a fraction: 0.28 (a fraction)'.
+    expect(actions('vent fio2 2|8').list.map((a) => a.title)).toContain('Write fio2 as a fraction: 0.28');
   });
 
   it('temperature °C ↔ °F, also with a glued unit; Hb g/dL ↔ g/L', () => {

@@ -105,8 +105,8 @@ function conversionAction(s: StatedValue): ActionInfo[] {
   const edits = itemConversionEdits(s.line, s, to);
   const number = numberIn(s, field, to);
   if (!edits || number === null) return [];
-  const shown = to === 'fraction' ? `${number} (a fraction)` : `${number} ${displayUnit(to)}`;
-  return [{ title: `Write ${keyOf(s)} in ${to === 'fraction' ? 'a fraction' : displayUnit(to)}: ${shown}`, kind: 'refactor.rewrite', edits }];
+  const title = to === 'fraction' ? `Write ${keyOf(s)} as a fraction: ${number}` : `Write ${keyOf(s)} in ${displayUnit(to)}: ${number} ${displayUnit(to)}`;
+  return [{ title, kind: 'refactor.rewrite', edits }];
 }
 
 function addUnitAction(s: StatedValue): ActionInfo[] {
