@@ -80,6 +80,23 @@ describe('an invalid pneumark.config.json', () => {
     }
   });
 
+  it('marks the SARIF log unsuccessful, with the problem as a configuration notification at its place, so an uploaded log does not claim a clean run', async () => {
+    const dir = project('{ "gasUnit": "kpa" }');
+    const out = io(dir);
+    expect(await run(['check', '--format', 'sarif', 'ward'], out)).toBe(2);
+    const invocation = (JSON.parse(out.out()) as { runs: { invocations: { executionSuccessful: boolean; toolConfigurationNotifications?: unknown[] }[] }[] }).runs[0]!.invocations[0]!;
+    expect(invocation.executionSuccessful).toBe(false);
+    expect(invocation.toolConfigurationNotifications).toEqual([{
+      level: 'error',
+      message: { text: expect.stringMatching(/^pneumark\.config\.json: `gasUnit`: .*Pneumark uses its defaults/) as unknown },
+      locations: [{ physicalLocation: { artifactLocation: { uri: 'pneumark.config.json', uriBaseId: 'SRCROOT' }, region: { startLine: 1, startColumn: 3 } } }],
+    }]);
+    // A valid file leaves the run successful.
+    const clean = io(project('{ "gasUnit": "kPa" }'));
+    await run(['check', '--format', 'sarif', 'ward'], clean);
+    expect((JSON.parse(clean.out()) as { runs: { invocations: { executionSuccessful: boolean }[] }[] }).runs[0]!.invocations[0]!.executionSuccessful).toBe(true);
+  });
+
   it('fails show and export too, after their output', async () => {
     const dir = project('{ "gasUnit": "kpa" }');
     const shown = io(dir);

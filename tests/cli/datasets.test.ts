@@ -98,6 +98,14 @@ describe('limits and levels', () => {
     }
   });
 
+  it('lists export\'s --spreadsheet-safe, and says --anchor takes 00:00 of day 1', async () => {
+    const out = io(process.cwd());
+    await run(['export', '--help'], out);
+    const text = out.out().replace(/\s+/g, ' ');
+    expect(text).toContain('--spreadsheet-safe CSV only: an apostrophe before text starting with = + - @ tab');
+    expect(text).toContain('--anchor DATETIME FHIR only: the ISO date-time of day 1 00:00 (its time must be 00:00');
+  });
+
   it('names every cause of exit code 2 in the main help, inputs that hold no note among them', async () => {
     const out = io(process.cwd());
     await run(['--help'], out);

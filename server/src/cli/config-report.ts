@@ -7,6 +7,7 @@
  */
 import { dirname, isAbsolute, join, relative } from 'node:path';
 import { CONFIG_FILE_NAME, type ConfigProblem } from '../core/config';
+import type { SarifConfigurationProblem } from '../core/export/sarif';
 import { ProjectConfigs, type FoundConfig } from '../node/project-config';
 import type { Io } from './args';
 import { visible } from './visible';
@@ -50,11 +51,26 @@ export class ConfigReport {
   lines(): string[] {
     const lines: string[] = [];
     for (const [path, problems] of this.files) {
-      const rel = relative(this.cwd, path);
-      const shown = rel === '' || isAbsolute(rel) ? path : rel;
+      const shown = this.shown(path);
       for (const p of problems) lines.push(configProblemLine(shown, p));
     }
     return lines;
+  }
+
+  /** The same problems for a SARIF log (tool configuration notifications): the file, its 1-based line and column, the message. */
+  sarifProblems(): SarifConfigurationProblem[] {
+    const out: SarifConfigurationProblem[] = [];
+    for (const [path, problems] of this.files) {
+      const shown = this.shown(path);
+      for (const p of problems) out.push({ path: shown, line: p.range.start.line + 1, column: p.range.start.character + 1, message: p.message.replace(/\s+/g, ' ').trim() });
+    }
+    return out;
+  }
+
+  /** A file as output names it: relative to the working folder when inside it, else absolute. */
+  private shown(path: string): string {
+    const rel = relative(this.cwd, path);
+    return rel === '' || isAbsolute(rel) ? path : rel;
   }
 }
 

@@ -38,18 +38,13 @@ const exportOptions = z.object({
   progress: z.boolean().default(true),
 });
 
-/**
- * The export task as this command builds it: the shared task of work.ts and the CSV option
- * `--spreadsheet-safe`. The task reaches worker threads whole (as `workerData`), so the option
- * holds there too (tests/export/cli.test.ts runs it with workers).
- */
-type ExportTask = Parameters<ExportRenderer>[2] & { readonly spreadsheetSafe?: boolean };
+type ExportTask = Parameters<ExportRenderer>[2];
 
 /** What one note contributes to the export (plain data, so it can come back from a worker). */
 export const exportRenderer: ExportRenderer = (path: string, result: NoteResult, task: ExportTask) => {
   const options = { redactProse: task.redactProse, shiftDays: task.shiftDays };
   if (task.format === 'csv') {
-    const csv = { spreadsheetSafe: task.spreadsheetSafe === true };
+    const csv = { spreadsheetSafe: task.spreadsheetSafe };
     return timepointCells(path, result, options).map((cells) => csvCells(cells, csv)).join('');
   }
   if (task.format === 'jsonl') return toJsonl(path, result, options);

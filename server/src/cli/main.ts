@@ -107,7 +107,7 @@ async function check(args: readonly string[], io: Io): Promise<number> {
     json.end();
     output.write('\n');
   } else if (opts.format === 'sarif') {
-    await writeCheckSarif(outcomes, opts.quiet, output);
+    await writeCheckSarif(outcomes, opts.quiet, output, configs.sarifProblems());
     output.write('\n');
   } else {
     await writeCheckText(outcomes, p, opts.quiet, output);

@@ -4,7 +4,7 @@
  * three are written in pieces (a big folder's output is larger than one string can hold).
  */
 import { CHECKS } from '../core/checks/registry';
-import { sarifLogParts } from '../core/export/sarif';
+import { sarifLogParts, type SarifConfigurationProblem } from '../core/export/sarif';
 import { PNEUMARK_VERSION } from '../core/version';
 import type { Finding } from '../core/types';
 import type { Paint } from './colour';
@@ -197,9 +197,9 @@ export function renderCheckJson(outcomes: readonly FileOutcome[]): string {
  * time in pieces of about a megabyte (the log of a big folder is larger than one string can hold).
  * The bytes are those of `JSON.stringify` of the whole log with two-space indentation.
  */
-export async function writeCheckSarif(outcomes: readonly FileOutcome[], quiet: boolean, out: Sink): Promise<void> {
+export async function writeCheckSarif(outcomes: readonly FileOutcome[], quiet: boolean, out: Sink, configurationProblems: readonly SarifConfigurationProblem[] = []): Promise<void> {
   const files = outcomes.map((o) => ({ path: o.path, findings: o.findings.filter((f) => !quiet || f.severity === 'error'), problem: o.problem }));
-  const { log, resultsOf } = sarifLogParts(files, { toolVersion: PNEUMARK_VERSION });
+  const { log, resultsOf } = sarifLogParts(files, { toolVersion: PNEUMARK_VERSION, configurationProblems });
   const whole = JSON.stringify(log, null, 2);
   // `results` is the last member of the only run: its empty list is the last one in the text.
   const empty = '"results": []';

@@ -13,7 +13,7 @@ import { timepointsJson } from './timepoints-json';
 
 export type Task =
   | { readonly kind: 'check'; readonly timepoints: boolean; /** `--quiet`: the JSON entries list error findings only. */ readonly errorsOnly?: boolean }
-  | { readonly kind: 'export'; readonly format: 'csv' | 'jsonl' | 'fhir'; readonly redactProse: boolean; readonly shiftDays: number; readonly anchor: string | null };
+  | { readonly kind: 'export'; readonly format: 'csv' | 'jsonl' | 'fhir'; readonly redactProse: boolean; readonly shiftDays: number; readonly anchor: string | null; /** `--spreadsheet-safe` (CSV). */ readonly spreadsheetSafe: boolean };
 
 export interface FileReport {
   readonly path: string;
