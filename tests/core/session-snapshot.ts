@@ -1,9 +1,10 @@
 // What a user sees of an analysis, as plain data, for comparing an editing session with a fresh
 // analysis: findings (ranges, messages, fixes), every timepoint's values in force with their
 // origins (also through the readers that build nothing), derived values, what is missing,
-// readings, inlay hints, symbols and folding ranges.
+// readings, inlay hints, symbols, folding ranges and the trend view's points.
 import type { NoteResult } from '../../server/src/core/check-note';
 import { FIELDS } from '../../server/src/core/fields/registry';
+import { trendGasUnit, trendPoints } from '../../server/src/core/trends';
 import { inlayHints } from '../../server/src/core/service/hints';
 import { documentSymbols, foldingRanges } from '../../server/src/core/service/symbols';
 import { HINT_CATEGORIES } from '../../server/src/core/service/types';
@@ -83,6 +84,9 @@ export function snapshot(r: NoteResult): unknown {
     hints: inlayHints(r, WHOLE_NOTE, ALL_HINTS),
     symbols: documentSymbols(r),
     folding: foldingRanges(r),
+    // The trend view's points, kept per timepoint object across edits.
+    trendGasUnit: trendGasUnit(r),
+    trends: trendPoints(r),
   };
 }
 
