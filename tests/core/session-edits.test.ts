@@ -358,3 +358,27 @@ describe('NoteSession under long random edit sequences', () => {
     expect(failures).toEqual([]);
   });
 });
+
+describe('NoteSession while a line is typed into a big note', () => {
+  it('reads only the line typed and keeps every other timepoint, keystroke after keystroke', { timeout: 120_000 }, () => {
+    const note = generateNote(300, 5); // about 1,500 lines, 300 timepoints
+    const session = new NoteSession();
+    session.update(note);
+    // A new line after a vitals line in the middle of the note (Enter), then typed a character at a time.
+    const at = note.indexOf('\n', note.indexOf('vitals', note.length >> 1)) + 1;
+    let text = `${note.slice(0, at)}\n${note.slice(at)}`;
+    session.update(text);
+    const typed = 'labs      na 139, k 4.1, cl 101';
+    for (let c = 1; c <= typed.length; c++) {
+      text = `${note.slice(0, at)}${typed.slice(0, c)}\n${note.slice(at)}`;
+      const got = session.update(text);
+      // The line typed, and the line before it when the edit touches its terminator.
+      expect(session.stats.parsedLines).toBeLessThanOrEqual(2);
+      expect(session.stats.reusedTimepoints).toBe(session.stats.timepoints - 1);
+      expect(sameAsJson(got.findings, checkNote(text).findings)).toBe(true);
+    }
+    const a = snapshot(session.update(text));
+    const b = snapshot(checkNote(text));
+    if (!sameAsJson(a, b)) expect(a).toEqual(b);
+  });
+});
