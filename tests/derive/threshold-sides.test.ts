@@ -90,3 +90,21 @@ describe('the PaCO2 reference interval in kPa', () => {
     expect(kpa).not.toMatch(/mixed/);
   });
 });
+
+describe('Berlin oxygenation bands from a PaO2 written in kPa (100 < P/F ≤ 200 mmHg is the moderate band; ARDS Definition Task Force, JAMA 2012;307:2526–2533, from memory)', () => {
+  it('16.0 kPa on FiO2 0.60 (P/F 200.02 mmHg) is on the 200 mmHg boundary, as 120 mmHg on 0.60 is', () => {
+    const mmhg = readings('@ 08:00\nvent peep 8, fio2 0.6\nabg 7.38/42/120/24')['oxygenation-band'];
+    const kpa = readings('units gas kPa\n@ 08:00\nvent peep 8, fio2 0.6\nabg ph 7.38, pco2 5.6, po2 16.0, hco3 24')['oxygenation-band'];
+    expect(mmhg).toMatch(/^P\/F 200 mmHg with PEEP 8 cmH2O: consistent with the 100–200 mmHg oxygenation band/);
+    expect(kpa).toMatch(/^P\/F 26\.7 kPa \(200 mmHg\) with PEEP 8 cmH2O: consistent with the 100–200 mmHg oxygenation band/);
+  });
+
+  it('16.1 kPa on FiO2 0.60 (P/F 201 mmHg) is above it', () => {
+    expect(readings('units gas kPa\n@ 08:00\nvent peep 8, fio2 0.6\nabg ph 7.38, pco2 5.6, po2 16.1, hco3 24')['oxygenation-band']).toMatch(/consistent with the 200–300 mmHg oxygenation band/);
+  });
+
+  it('P/F 300 from a kPa PaO2 (12.0 kPa on 0.30 = 300.02 mmHg) reads as impaired oxygenation on oxygen, as 90 mmHg on 0.30 does', () => {
+    expect(readings('units gas kPa\n@ 08:00\noxygen venturi, fio2 0.3\nabg ph 7.40, pco2 5.3, po2 12.0, hco3 24')['oxygenation']).toMatch(/consistent with impaired oxygenation supported by oxygen/);
+    expect(readings('@ 08:00\noxygen venturi, fio2 0.3\nabg 7.40/40/90/24.4')['oxygenation']).toMatch(/consistent with impaired oxygenation supported by oxygen/);
+  });
+});

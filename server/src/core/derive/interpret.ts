@@ -5,7 +5,7 @@
  * practice). Grades and cut-offs not taken from settings are named below with their source.
  */
 import { ANION_GAP_UPPER_NORMAL_MMOL_L, BERLIN_BAND_SEVERITY, HCO3_CENTRE_MMOL_L, HCO3_NORMAL_MMOL_L, PACO2_NORMAL_MMHG, PH_NORMAL, berlinOxygenationBand, type AcidBaseClassification, type AcidBaseDisorder } from '../physiology';
-import { forBand, sideOf } from '../physiology/numeric';
+import { sideOf } from '../physiology/numeric';
 import { MMHG_PER_KPA } from '../physiology/units';
 import type { Settings } from '../settings';
 import { formatAgainst, formatNumber, formatShort, rangeAgainst, wordList } from '../util/format';
@@ -25,6 +25,8 @@ export const UPPER_NORMAL_PACO2_MMHG = 45;
 export const LOW_PIO2_MMHG = 140;
 /** Upper normal A–a gradient (mmHg) used when the age is unknown (common practice, generous). */
 export const AA_UPPER_NORMAL_NO_AGE_MMHG = 20;
+/** The boundaries (mmHg) of the Berlin oxygenation bands: 200 < P/F ≤ 300, 100 < P/F ≤ 200, P/F ≤ 100 (ARDS Definition Task Force, JAMA 2012). */
+const BERLIN_BOUNDARIES: readonly number[] = [100, 200, 300];
 /** PEEP or CPAP (cmH2O) from which the Berlin oxygenation bands apply. */
 export const BERLIN_MIN_PEEP_CMH2O = 5;
 
@@ -128,6 +130,9 @@ export function interpret(c: DeriveContext, settings: Settings): Interpretation[
     push('oxygenation', `PaO2 ${gas.value(pao2.value)}: oxygenation not read, as ${notRead}.`, ['pao2', 'pao2_alveolar'], false);
   } else if (pao2) {
     const pf = c.derivedValue('pf_ratio');
+    // A P/F from a PaO2 written in kPa is read at the PaO2's resolution divided by the FiO2: 16.0 kPa
+    // on FiO2 0.60 (P/F 200.02 mmHg) is on the 200 mmHg boundary, as 120 mmHg on 0.60 is.
+    const pfResolution = fio2 !== null && fio2.value > 0 ? o2Resolution / fio2.value : 0;
     // Numbers are shown with the decimals that keep them on their side of the thresholds named.
     const hypoxaemiaAt = settings.hypoxaemiaBelowMmhg;
     const pao2Shown = (t1: number, t2 = NaN) => gas.measured(pao2.value, o2Resolution, t1, t2);
@@ -135,7 +140,7 @@ export function interpret(c: DeriveContext, settings: Settings): Interpretation[
     if (hypoxaemic) {
       const grade = sideOf(pao2.value, SEVERE_HYPOXAEMIA_MMHG, o2Resolution) < 0 ? 'severe' : 'moderate';
       push('oxygenation', `PaO2 ${pao2Shown(hypoxaemiaAt, SEVERE_HYPOXAEMIA_MMHG)}: consistent with ${grade} hypoxaemia (below ${gas.threshold(hypoxaemiaAt, pao2.value)}${grade === 'severe' ? `, and below ${gas.threshold(SEVERE_HYPOXAEMIA_MMHG, pao2.value)}` : ''})${onOxygen ? ` despite ${fio2Words(fio2)}` : ''}.`, ['pao2']);
-    } else if (onOxygen && pf && forBand(pf.value) <= 300) {
+    } else if (onOxygen && pf && sideOf(pf.value, 300, pfResolution) <= 0) {
       const carried = carriedWords(fio2);
       push('oxygenation', `PaO2 ${pao2Shown(hypoxaemiaAt)} on FiO2 ${formatNumber(fio2.value, 2)} (P/F ${gas.kpa ? `${kpaNumber(pf.value)} kPa, ` : ''}${formatAgainst(pf.value, 0, 300)} mmHg${carried ? `; ${carried}` : ''}): consistent with impaired oxygenation supported by oxygen.`, ['pao2', 'pf_ratio']);
     } else if (sideOf(pao2.value, LOW_NORMAL_PAO2_MMHG, o2Resolution) < 0) {
@@ -149,11 +154,14 @@ export function interpret(c: DeriveContext, settings: Settings): Interpretation[
     const adjusted = c.derivedValue('pf_ratio_altitude_adjusted');
     const pfForBand = adjusted ?? pf;
     if (pfForBand && peep && peep.value >= BERLIN_MIN_PEEP_CMH2O) {
-      const band = berlinOxygenationBand(pfForBand.value);
+      // The altitude adjustment scales the resolution as it scales the P/F.
+      const resolution = pf && pf.value > 0 ? (pfResolution * pfForBand.value) / pf.value : 0;
+      const onBoundary = BERLIN_BOUNDARIES.find((b) => sideOf(pfForBand.value, b, resolution) === 0 && resolution > 0);
+      const band = berlinOxygenationBand(onBoundary ?? pfForBand.value);
       if (band) {
         const words = band === 'pf-200-to-300' ? '200–300' : band === 'pf-100-to-200' ? '100–200' : '≤ 100';
         // The bands are defined in mmHg: a kPa note gets the P/F in both units.
-        const pfShown = `${formatAgainst(pfForBand.value, 0, 100, 200, 300)} mmHg`;
+        const pfShown = `${onBoundary ?? formatAgainst(pfForBand.value, 0, 100, 200, 300)} mmHg`;
         const carried = carriedWords(fio2, peep);
         push('oxygenation-band', `P/F ${gas.kpa ? `${kpaNumber(pfForBand.value)} kPa (${pfShown})` : pfShown}${adjusted ? ' (adjusted for altitude)' : ''} with ${peep.name} ${formatAgainst(peep.value, 0, BERLIN_MIN_PEEP_CMH2O)} cmH2O${carried ? ` (${carried})` : ''}: consistent with the ${words} mmHg oxygenation band of the Berlin definition (the band called ${BERLIN_BAND_SEVERITY[band]} there) — an oxygenation band, not a diagnosis.`, [adjusted ? 'pf_ratio_altitude_adjusted' : 'pf_ratio', peep.fieldId ?? 'peep']);
       }
