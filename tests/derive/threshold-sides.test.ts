@@ -108,3 +108,15 @@ describe('Berlin oxygenation bands from a PaO2 written in kPa (100 < P/F ≤ 200
     expect(readings('@ 08:00\noxygen venturi, fio2 0.3\nabg 7.40/40/90/24.4')['oxygenation']).toMatch(/consistent with impaired oxygenation supported by oxygen/);
   });
 });
+
+describe('the hypercapnia threshold set to 6.5 kPa (48.75 mmHg; British Thoracic Society 2017, O’Driscoll BR et al., Thorax 2017;72 Suppl 1, from memory)', () => {
+  const bts = { hypercapniaAboveMmhg: 48.75 };
+  it('6.5 kPa is at it, 6.6 kPa above it, in a kPa note', () => {
+    expect(readings(`${KPA}abg ph 7.38, pco2 6.5, po2 9.5, hco3 28`, bts).ventilation).toBe('PaCO2 6.5 kPa (49 mmHg): consistent with a mildly raised PaCO2, at the hypercapnia threshold of 6.5 kPa, not above it.');
+    expect(readings(`${KPA}abg ph 7.37, pco2 6.6, po2 9.5, hco3 28`, bts).ventilation).toBe('PaCO2 6.6 kPa (50 mmHg): consistent with hypercapnia (above 6.5 kPa): ventilation is not clearing CO2.');
+  });
+
+  it('49 mmHg written in mmHg is above 48.75 mmHg, as written', () => {
+    expect(readings(`${AIR}abg 7.37/49/72/27.6`, bts).ventilation).toBe('PaCO2 49 mmHg: consistent with hypercapnia (above 48.75 mmHg): ventilation is not clearing CO2.');
+  });
+});
