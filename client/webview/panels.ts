@@ -131,7 +131,9 @@ export function timepointTable(points: readonly TrendPoint[]): TimepointTable {
       cells: series.map((s) => {
         const v = p.values[s.key];
         // The unit is in the heading; a value carried from an earlier timepoint is marked.
-        const text = v === undefined ? '—' : legendText(v.value, v.unit).replace(/ .*$/, '');
+        const legend = v === undefined ? '—' : legendText(v.value, v.unit);
+        const space = legend.indexOf(' ');
+        const text = space >= 0 ? legend.slice(0, space) : legend;
         return v !== undefined && p.carried.includes(s.key) ? `${text}*` : text;
       }),
     })),
