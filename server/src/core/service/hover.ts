@@ -18,6 +18,7 @@ import type { SectionLine, TimepointLine } from '../syntax/tree';
 import type { Position } from '../types';
 import { formatNumber, formatShort, wordList } from '../util/format';
 import { unitsForSpelling } from '../fields/units';
+import { isBlank } from '../syntax/lexer';
 import { derivedValueText } from './derived-hover';
 import { allStated, contentEnd, contentStart, isValidPosition, itemAt, lineAt, lineRange, showsKpaOnLine, spanContains, statedOf, timepointOfLine, type ItemHit } from './locate';
 import { cautionLine, code, escapeMarkdown, paragraphs } from './markdown';
@@ -214,7 +215,17 @@ export function clockText(minutes: number): string {
 /** The time as written after `@` (also one that could not be read), without the label. */
 function writtenTime(node: TimepointLine, end: number): string {
   if (node.time) return node.time.text;
-  return node.text.slice(node.marker.span.end, node.label ? node.label.span.start : end).replace(/^[\s,]+|[\s,]+$/g, '');
+  return trimmed(node.text.slice(node.marker.span.end, node.label ? node.label.span.start : end), ',');
+}
+
+/** The text without blanks (and the punctuation given) at either end; a loop, not a regex, so long runs of blanks cost nothing. */
+function trimmed(text: string, punctuation: string): string {
+  const cut = (i: number) => isBlank(text.charCodeAt(i)) || /\s/.test(text.charAt(i)) || punctuation.includes(text.charAt(i));
+  let start = 0;
+  let end = text.length;
+  while (start < end && cut(start)) start++;
+  while (end > start && cut(end - 1)) end--;
+  return text.slice(start, end);
 }
 
 function timeParagraph(node: TimepointLine, tp: Timepoint | null, written: string): string {
@@ -253,7 +264,7 @@ function timepointHover(result: NoteResult, node: TimepointLine, start: number, 
   const written = writtenTime(node, end);
   const title = `**${code(written ? `@ ${written}` : '@')}**${node.label ? ` — ${escapeMarkdown(node.label.text)}` : ''}`;
   // Text between a time that was read and the label (`@ day 1 25:10`, `@ day 2 0800`): part of the time that was not.
-  const unread = node.time ? node.text.slice(node.time.span.end, node.label ? node.label.span.start : end).replace(/^[\s,.]+|[\s,.]+$/g, '') : '';
+  const unread = node.time ? trimmed(node.text.slice(node.time.span.end, node.label ? node.label.span.start : end), ',.') : '';
   const parts: (string | null)[] = [title, timeParagraph(node, tp, written), unread ? `${code(unread)} after it is not a time Pneumark reads.` : null];
   if (tp) {
     const carried = [...tp.values.values()]
