@@ -69,8 +69,13 @@ export async function activate(context: vscode.ExtensionContext): Promise<void> 
 }
 
 export async function deactivate(): Promise<void> {
-  await client?.stop();
+  const c = client;
   client = null;
+  try {
+    await c?.stop();
+  } catch {
+    // A server that never started (or already stopped) has nothing to stop.
+  }
 }
 
 /**

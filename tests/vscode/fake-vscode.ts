@@ -246,6 +246,7 @@ export const state = {
   files: new Map<string, string>(),
   configuration: new Map<string, unknown>(),
   serializers: new Map<string, unknown>(),
+  outputLines: [] as string[],
   events: {
     selection: new EventEmitter<{ textEditor: FakeEditor }>(),
     activeEditor: new EventEmitter<FakeEditor | undefined>(),
@@ -273,6 +274,7 @@ export function resetFake(): void {
   state.files = new Map();
   state.configuration = new Map();
   state.serializers = new Map();
+  state.outputLines = [];
   for (const e of Object.values(state.events)) e.dispose();
 }
 
@@ -319,6 +321,17 @@ const disposable = { dispose: () => undefined };
 export const vscodeModule = {
   EventEmitter, Uri, Position, Range, Selection, SnippetString, WorkspaceEdit, StatusBarAlignment, ViewColumn, LogLevel,
   window: {
+    createOutputChannel: (name: string) => {
+      const lines: string[] = [];
+      state.outputLines = lines;
+      const log = (level: string) => (m: unknown) => { lines.push(`[${level}] ${String(m)}`); };
+      return {
+        name, logLevel: LogLevel.Info, onDidChangeLogLevel: new EventEmitter<LogLevel>().event,
+        trace: log('trace'), debug: log('debug'), info: log('info'), warn: log('warning'), error: log('error'),
+        append: log('info'), appendLine: log('info'), replace: () => undefined, clear: () => undefined,
+        show: () => undefined, hide: () => undefined, dispose: () => undefined,
+      };
+    },
     get activeTextEditor() { return state.activeTextEditor; },
     get visibleTextEditors() { return state.visibleTextEditors; },
     onDidChangeTextEditorSelection: (l: Listener<{ textEditor: FakeEditor }>) => state.events.selection.event(l),
@@ -352,6 +365,7 @@ export const vscodeModule = {
     },
   },
   workspace: {
+    createFileSystemWatcher: () => disposable,
     get textDocuments() { return state.documents; },
     onDidOpenTextDocument: (l: Listener<FakeDocument>) => state.events.openDocument.event(l),
     onDidCloseTextDocument: (l: Listener<FakeDocument>) => state.events.closeDocument.event(l),
