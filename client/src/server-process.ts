@@ -132,9 +132,8 @@ export function traceChannel(output: vscode.LogOutputChannel): vscode.LogOutputC
  * Passes on to the server only the settings changes that concern it. The server registers for
  * `workspace/didChangeConfiguration` without naming a section, so the language client sent it a
  * notification for every change of any setting (a font size, another extension's option), and the
- * server asked again for the settings of every open note and analysed each one again. Created
- * before the language client, its listener runs first and notes whether the change touches
- * `pneumark.*`; the middleware then lets only those through.
+ * server asked again for the settings of every open note and analysed each one again. Its
+ * listener notes whether a change touches `pneumark.*`; the middleware lets only those through.
  */
 export function pneumarkSettingsOnly(): vscode.Disposable & {
   readonly middleware: (sections: string[] | undefined, next: (sections: string[] | undefined) => Promise<void>) => Promise<void>;
@@ -143,6 +142,9 @@ export function pneumarkSettingsOnly(): vscode.Disposable & {
   const listener = vscode.workspace.onDidChangeConfiguration((e) => { concernsPneumark = e.affectsConfiguration('pneumark'); });
   return {
     middleware: async (sections, next) => {
+      // VS Code calls every listener of one change before any promise job runs: after this
+      // wait the flag is the one of this change, whichever listener was registered first.
+      await Promise.resolve();
       if (!concernsPneumark) return;
       await next(sections);
     },

@@ -139,6 +139,14 @@ describe('settings changes sent to the server', () => {
     change('pneumark.hints.mechanics');
     await filter.middleware(undefined, next);
     expect(sent).toEqual([undefined, undefined]);
+    // The language client's listener may run before ours for the same change.
+    const early = filter.middleware(undefined, next);
+    change('editor.tabSize');
+    await early;
+    const late = filter.middleware(undefined, next);
+    change('pneumark.debounceMs');
+    await late;
+    expect(sent).toEqual([undefined, undefined, undefined]);
     filter.dispose();
   });
 });
