@@ -4,7 +4,6 @@
  */
 import * as vscode from 'vscode';
 import {
-  InlayHintRequest,
   LanguageClient,
   RevealOutputChannelOn,
   TransportKind,
@@ -15,7 +14,6 @@ import {
 import { ANALYSED_NOTIFICATION, type AnalysedParams } from '../../server/src/protocol';
 import { convertNoteUnits, insertTimepoint, openCheckDocs } from './commands';
 import { crashHandler, pneumarkSettingsOnly, restartServer, traceChannel, type CrashHandler } from './server-process';
-import { ReanalysisTracker } from './reanalysis';
 import { LANGUAGE, TimepointStatus, type Requester } from './status';
 import { TREND_VIEW_TYPE, TrendView } from './trend-view';
 
@@ -46,12 +44,9 @@ export async function activate(context: vscode.ExtensionContext): Promise<void> 
     vscode.commands.registerCommand('pneumark.showOutput', () => output.show()),
   );
 
-  const reanalyses = new ReanalysisTracker();
-  context.subscriptions.push(vscode.workspace.onDidCloseTextDocument((d) => reanalyses.closed(d.uri.toString())));
   client.onNotification(ANALYSED_NOTIFICATION, (p: AnalysedParams) => {
     trends.noteAnalysed(p.uri);
     status.noteAnalysed(p.uri);
-    if (reanalyses.analysed(p.uri, p.version)) refreshInlayHints(p.uri);
   });
   try {
     await client.start();
@@ -91,13 +86,6 @@ function noteFor(resource: unknown): vscode.TextDocument | undefined {
   if (active?.languageId === LANGUAGE) return active;
   const notes = vscode.window.visibleTextEditors.filter((e) => e.document.languageId === LANGUAGE);
   return notes.length === 1 ? notes[0]!.document : active;
-}
-
-/** Asks the editor for a note's inlay hints again (see ReanalysisTracker). */
-function refreshInlayHints(uri: string): void {
-  const document = vscode.workspace.textDocuments.find((d) => d.uri.toString() === uri);
-  if (!client || !document) return;
-  client.getFeature(InlayHintRequest.method).getProvider(document)?.onDidChangeInlayHints.fire();
 }
 
 function createClient(output: vscode.LogOutputChannel, trace: vscode.LogOutputChannel, crashes: CrashHandler, didChangeConfiguration: NonNullable<NonNullable<Middleware['workspace']>['didChangeConfiguration']>, module: string): LanguageClient {

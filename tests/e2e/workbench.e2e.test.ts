@@ -1,5 +1,6 @@
 // The extension in a real VS Code workbench (code-server) in a real browser (headless Chromium).
 // Every assertion reads the page itself; screenshots go to test-output/e2e/.
+import { mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Frame } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -176,6 +177,20 @@ describe('Pneumark in VS Code', () => {
       return false;
     }, { timeout: 60000 }).toBe(true);
     await screenshot(wb.page, '13-check-docs');
+  });
+
+  it('applies a setting changed while a note is open, without a reload or an edit', async () => {
+    await openFile(wb.page, 'icu-ventilated-lung-injury.pneu');
+    const lines = wb.page.locator('.editor-instance .monaco-editor .view-lines').first();
+    await expect.poll(async () => (await lines.textContent()) ?? '', { timeout: 60000 }).toMatch(/P\/F\s93/);
+    // The oxygenation hints (P/F) switched off in the workspace's settings: they go at once.
+    mkdirSync(join(wb.workspace, '.vscode'), { recursive: true });
+    writeFileSync(join(wb.workspace, '.vscode', 'settings.json'), JSON.stringify({ 'pneumark.hints.oxygenation': false }));
+    await expect.poll(async () => (await lines.textContent()) ?? '', { timeout: 60000 }).not.toMatch(/P\/F\s93/);
+    // The other hints stay (ΔP is a mechanics hint).
+    expect(await lines.textContent()).toMatch(/ΔP\s19/);
+    await screenshot(wb.page, '14-setting-applied');
+    writeFileSync(join(wb.workspace, '.vscode', 'settings.json'), '{}');
   });
 });
 

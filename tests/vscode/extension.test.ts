@@ -1,7 +1,7 @@
 // The extension's activation as a whole, with stand-ins for VS Code (fake-vscode.ts) and the
-// language client: a server that cannot start, a re-analysis after a settings change, shutting down.
+// language client: a server that cannot start, shutting down, what is handed to the client.
 import { beforeEach, describe, expect, it, vi } from 'vitest';
-import { openEditor, resetFake, state, Uri } from './fake-vscode';
+import { resetFake, state, Uri } from './fake-vscode';
 
 vi.mock('vscode', async () => (await import('./fake-vscode')).vscodeModule);
 
@@ -11,7 +11,6 @@ const clients: FakeClient[] = [];
 class FakeClient {
   running = false;
   readonly notifications = new Map<string, (params: unknown) => void>();
-  readonly hintRefreshes: string[] = [];
   readonly options: Record<string, unknown>;
   constructor(_id: string, _name: string, _server: unknown, options: Record<string, unknown>) {
     this.options = options;
@@ -29,9 +28,6 @@ class FakeClient {
   isRunning(): boolean { return this.running; }
   onNotification(method: string, handler: (params: unknown) => void): void { this.notifications.set(method, handler); }
   async sendRequest(): Promise<null> { return null; }
-  getFeature(_method: string) {
-    return { getProvider: (document: { uri: Uri }) => ({ onDidChangeInlayHints: { fire: () => this.hintRefreshes.push(document.uri.toString()) } }) };
-  }
 }
 vi.mock('vscode-languageclient/node', () => ({
   LanguageClient: FakeClient,
@@ -39,7 +35,6 @@ vi.mock('vscode-languageclient/node', () => ({
   CloseAction: { DoNotRestart: 1, Restart: 2 },
   RevealOutputChannelOn: { Never: 4 },
   TransportKind: { stdio: 0 },
-  InlayHintRequest: { method: 'textDocument/inlayHint' },
 }));
 const { activate, deactivate } = await import('../../client/src/extension');
 
@@ -65,17 +60,6 @@ describe('activation', () => {
     // Shutting down a client that never started does not fail.
     behaviour.stopFails = true;
     await expect(deactivate()).resolves.toBeUndefined();
-  });
-
-  it('asks for a note\'s inlay hints again when the server analyses the same text again (a setting changed)', async () => {
-    await activate(context() as never);
-    const editor = openEditor('/work/a.pneu', '@ 08:00');
-    const analysed = clients[0]!.notifications.get('pneumark/analysed')!;
-    analysed({ uri: editor.document.uri.toString(), version: 1, millis: 1, steps: 1, longestStepMillis: 1 });
-    expect(clients[0]!.hintRefreshes).toEqual([]);
-    analysed({ uri: editor.document.uri.toString(), version: 1, millis: 1, steps: 1, longestStepMillis: 1 });
-    expect(clients[0]!.hintRefreshes).toEqual(['file:///work/a.pneu']);
-    await deactivate();
   });
 
   it('passes the trace channel and the settings filter to the language client', async () => {
