@@ -39,7 +39,7 @@ describe('Pneumark in VS Code', () => {
     // A screen reader reads the figures as the item's name.
     const named = wb.page.locator('#workbench\\.parts\\.statusbar [aria-label^="Pneumark timepoint"]').first();
     await named.waitFor({ timeout: 15000 });
-    expect(await named.getAttribute('aria-label')).toMatch(/^Pneumark timepoint admitted to intensive care, intubated: P\/F 93, .*pH 7\.29/);
+    expect(await named.getAttribute('aria-label')).toMatch(/^Pneumark timepoint admitted to intensive care, intubated: P\/F 93 mmHg, .*pH 7\.29/);
   });
 
   it('lists findings in the Problems panel with our codes', async () => {

@@ -130,7 +130,7 @@ describe('language features', () => {
     await client.diagnostics(doc);
     const gasLine = text.split('\n').findIndex((l) => l.startsWith('abg       ph 7.28'));
     const summary = await client.connection.sendRequest<{ text: string }>('pneumark/timepointSummary', { uri: doc, line: gasLine });
-    expect(summary.text).toBe('P/F 28.2 kPa (212) · pH 7.28 · PaCO2 9.1 kPa · PaO2 7.9 kPa · SpO2 90%');
+    expect(summary.text).toBe('P/F 28.2 kPa (212) · pH 7.28 · PaCO2 9.1 kPa · PaO2 7.9 kPa · SpO2 90 %');
     const hints = await client.connection.sendRequest<InlayHint[]>('textDocument/inlayHint', { textDocument: { uri: doc }, range: { start: { line: gasLine, character: 0 }, end: { line: gasLine, character: 0 } } });
     const pf = hints.find((h) => String(h.label).startsWith('P/F'));
     expect(pf?.label).toBe('P/F 28.2 kPa (212) · A–a 7.3 kPa (55), ≤ 2.9');

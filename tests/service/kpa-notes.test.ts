@@ -72,13 +72,27 @@ describe('the expected numbers (definition of the units, cross-checked with UCUM
 describe('status summary in a kPa note', () => {
   it('gives every gas pressure its unit, in kPa, and P/F in kPa with mmHg in parentheses', () => {
     // PaCO2 and PaO2 as written (9.1, 7.9 kPa); P/F 28.2 kPa = 212 mmHg (see above).
-    expect(timepointSummary(checkNote(kpaNote), GAS_LINE)?.text).toBe('P/F 28.2 kPa (212) · pH 7.28 · PaCO2 9.1 kPa · PaO2 7.9 kPa · SpO2 90%');
+    expect(timepointSummary(checkNote(kpaNote), GAS_LINE)?.text).toBe('P/F 28.2 kPa (212) · pH 7.28 · PaCO2 9.1 kPa · PaO2 7.9 kPa · SpO2 90 %');
+  });
+
+  it('spells each figure out in the tooltip, kPa with mmHg, before the readings and the caution', () => {
+    const tooltip = timepointSummary(checkNote(kpaNote), GAS_LINE)?.tooltip.split('\n') ?? [];
+    // 9.1 kPa = 68.3 mmHg, 7.9 kPa = 59.3 mmHg (1 kPa = 7.50062 mmHg, the units' definition).
+    expect(tooltip.slice(1, 6)).toEqual(['P/F 28.2 kPa (212 mmHg)', 'pH 7.28', 'PaCO2 9.1 kPa (68 mmHg)', 'PaO2 7.9 kPa (59 mmHg)', 'SpO2 90 %']);
+    expect(tooltip.at(-1)).toBe('Decision support only — defer to local protocols and licensed practice.');
+  });
+
+  it('gives a driving pressure its unit in the status bar and the tooltip', () => {
+    const summary = timepointSummary(checkNote(note('@ 08:00', 'vent mode VC, vt 420 mL, rate 16, peep 8, fio2 0.5', 'vent plateau 26')), 2);
+    // Driving pressure = plateau − PEEP = 26 − 8 = 18 cmH2O (Amato MBP et al., Driving pressure and survival in ARDS, NEJM 2015).
+    expect(summary?.text).toBe('ΔP 18 cmH2O');
+    expect(summary?.tooltip.split('\n')).toContain('Driving pressure 18 cmH2O');
   });
 
   it('follows the gas unit in force at each timepoint, and the gasUnit setting', () => {
     const switched = note('@ 08:00', 'oxygen venturi, fio2 0.4', 'abg 7.30/56/71/26', '@ 09:00', 'units gas kPa', 'abg 7.32/7.2/9.8/26');
     const result = checkNote(switched);
-    expect(timepointSummary(result, 2)?.text).toBe('P/F 178 · pH 7.30 · PaCO2 56 · PaO2 71');
+    expect(timepointSummary(result, 2)?.text).toBe('P/F 178 mmHg · pH 7.30 · PaCO2 56 mmHg · PaO2 71 mmHg');
     // 9.8 kPa = 73.5 mmHg; ÷ 0.40 = 183.8 mmHg = 24.5 kPa (UCUM: ucumKpa(ucumMmhg(9.8) / 0.4)).
     expect(ucumKpa(ucumMmhg(9.8) / 0.4)).toBeCloseTo(24.5, 1);
     expect(timepointSummary(result, 5)?.text).toBe('P/F 24.5 kPa (184) · pH 7.32 · PaCO2 7.2 kPa · PaO2 9.8 kPa');
@@ -185,7 +199,7 @@ describe('header values in a kPa note', () => {
 describe('a note in mmHg', () => {
   it('is shown as before: no kPa in the summary, hints or formulas', () => {
     const result = checkNote(mmhgNote);
-    expect(timepointSummary(result, 4)?.text).toBe('P/F 211 · pH 7.28 · PaCO2 68 · PaO2 59 · SpO2 90%');
+    expect(timepointSummary(result, 4)?.text).toBe('P/F 211 mmHg · pH 7.28 · PaCO2 68 mmHg · PaO2 59 mmHg · SpO2 90 %');
     const [first] = hintsOn(result, 4);
     expect(first?.label).toBe('P/F 211 · A–a 56 (≤ 22)');
     expect(first?.tooltipMarkdown).toContain('With the numbers: `59 ÷ 0.28 = 211 mmHg`');
@@ -197,7 +211,7 @@ describe('a note in mmHg', () => {
 
   it('is shown as before when it says `units gas mmHg`', () => {
     const explicit = checkNote(note('units gas mmHg', mmhgNote));
-    expect(timepointSummary(explicit, 5)?.text).toBe('P/F 211 · pH 7.28 · PaCO2 68 · PaO2 59 · SpO2 90%');
+    expect(timepointSummary(explicit, 5)?.text).toBe('P/F 211 mmHg · pH 7.28 · PaCO2 68 mmHg · PaO2 59 mmHg · SpO2 90 %');
     expect(hintsOn(explicit, 5)[0]?.label).toBe('P/F 211 · A–a 56 (≤ 22)');
   });
 });
@@ -212,13 +226,13 @@ describe('a gas written with its unit', () => {
     const at = noteAt(note('@ 08:00', 'oxygen venturi, fio2 0.4', 'abg 7.32/7.2/9.|8/26 kPa'));
     expect(hoverAt(at.result, at.position)?.markdown).toContain('Value: **9.8 kPa** = 74 mmHg');
     // The next timepoint writes its gas bare, read in the note's mmHg: shown in mmHg again.
-    expect(timepointSummary(result, 4)?.text).toBe('P/F 178 · pH 7.30 · PaCO2 56 · PaO2 71');
+    expect(timepointSummary(result, 4)?.text).toBe('P/F 178 mmHg · pH 7.30 · PaCO2 56 mmHg · PaO2 71 mmHg');
   });
 
   it('in mmHg, in a kPa note, is shown in mmHg first; units that differ within a gas leave the note\'s unit', () => {
     const inMmhg = checkNote(note('units gas kPa', '@ 08:00', 'oxygen venturi, fio2 0.4', 'abg ph 7.30, pco2 56 mmHg, po2 71 mmHg'));
     expect(inMmhg.analysis.timeline.timepoints[0]?.shownGasUnit).toBe('mmHg');
-    expect(timepointSummary(inMmhg, 3)?.text).toBe('P/F 178 · pH 7.30 · PaCO2 56 · PaO2 71');
+    expect(timepointSummary(inMmhg, 3)?.text).toBe('P/F 178 mmHg · pH 7.30 · PaCO2 56 mmHg · PaO2 71 mmHg');
     const mixed = checkNote(note('units gas kPa', '@ 08:00', 'oxygen venturi, fio2 0.4', 'abg ph 7.32, pco2 7.2, po2 73.5 mmHg'));
     expect(mixed.analysis.timeline.timepoints[0]?.shownGasUnit).toBe('kPa');
     expect(timepointSummary(mixed, 3)?.text).toMatch(/^P\/F 24\.5 kPa \(184\)/);

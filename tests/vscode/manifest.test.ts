@@ -109,3 +109,13 @@ describe('the contributed commands', () => {
     }
   });
 });
+
+describe('activation', () => {
+  it('activates for a restored trend view, so that a reload with only the trends open does not leave it blank', () => {
+    const { activationEvents } = JSON.parse(readFileSync('package.json', 'utf8')) as { activationEvents: string[] };
+    const viewType = /export const TREND_VIEW_TYPE = '([^']+)'/.exec(readFileSync('client/src/trend-view.ts', 'utf8'))?.[1];
+    expect(viewType).toBe('pneumark.trends');
+    expect(activationEvents).toEqual(['onLanguage:pneumark', `onWebviewPanel:${viewType}`]);
+    expect(extensionSource).toContain('registerWebviewPanelSerializer(TREND_VIEW_TYPE');
+  });
+});

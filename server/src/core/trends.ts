@@ -11,7 +11,7 @@ import type { NoteResult } from './check-note';
 import type { TimepointDerivation } from './derive/model';
 import { derivedValueOf } from './derive/registry';
 import { percentFromFraction } from './physiology/units';
-import { kpaFirstCompact, kpaFromMmhg, showsKpa, statedInKpa } from './present';
+import { gasPressureText, kpaFirstCompact, kpaFromMmhg, showsKpa, statedInKpa } from './present';
 import { formatNumber } from './util/format';
 
 export const TREND_FIELDS = ['pao2', 'paco2', 'ph', 'spo2', 'fio2', 'peep'] as const;
@@ -167,35 +167,47 @@ function inTrendUnit(value: number, unit: string | null, gasUnit: TrendGasUnit):
 }
 
 /**
- * Key figures of the timepoint that holds a line, for a status bar: `P/F 147 · pH 7.31 · PaCO2 47`.
- * Where the gas unit in force is kPa, gas pressures say their unit, in kPa (PaCO2 as the note wrote
- * it), and P/F gives mmHg in parentheses: `P/F 19.6 kPa (147) · pH 7.31 · PaCO2 6.3 kPa`.
+ * Key figures of the timepoint that holds a line, for a status bar, each with its unit:
+ * `P/F 147 mmHg · pH 7.31 · PaCO2 47 mmHg · SpO2 91 % · ΔP 14 cmH2O`. Where the gas unit in force
+ * is kPa, gas pressures are in kPa (PaCO2 as the note wrote it) and P/F gives mmHg in parentheses,
+ * as the inlay hints do: `P/F 19.6 kPa (147) · pH 7.31 · PaCO2 6.3 kPa`. The tooltip spells each
+ * figure out on a line of its own (kPa with mmHg), then the notable readings and the caution.
  */
 export function timepointSummary(result: NoteResult, line: number): { label: string; text: string; tooltip: string } | null {
   const { timeline } = result.analysis;
   const tp = timeline.timepoints.find((t) => line >= t.startLine && line <= t.endLine);
   if (!tp) return null;
   const d = result.analysis.derivation(tp.index);
+  // `parts`: the status bar's compact figures; `figures`: the same in full, a line each, for the tooltip.
   const parts: string[] = [];
+  const figures: string[] = [];
   const kpa = showsKpa(tp);
   const pf = derivedValueOf(d, 'pf_ratio');
-  if (pf) parts.push(`P/F ${kpa ? kpaFirstCompact(pf.value, 0) : formatNumber(pf.value, 0)}`);
+  if (pf) {
+    parts.push(`P/F ${kpa ? kpaFirstCompact(pf.value, 0) : `${formatNumber(pf.value, 0)} mmHg`}`);
+    figures.push(`P/F ${gasPressureText(pf.value, 0, kpa)}`);
+  }
   const show = (id: string, name: string, decimals: number, unit = '') => {
     const v = tp.values.get(id);
     if (!v?.stated.usable || v.stated.value === null || v.origin.kind !== 'here') return;
     const inKpa = kpa ? statedInKpa(v.stated) : null;
-    parts.push(inKpa ? `${name} ${inKpa}` : `${name} ${formatNumber(v.stated.value, decimals)}${unit}`);
+    const mmHg = `${formatNumber(v.stated.value, decimals)}${unit}`;
+    parts.push(`${name} ${inKpa ?? mmHg}`);
+    figures.push(`${name} ${inKpa ? `${inKpa} (${mmHg})` : mmHg}`);
   };
   show('ph', 'pH', 2);
-  show('paco2', 'PaCO2', 0);
-  show('pao2', 'PaO2', 0);
-  show('spo2', 'SpO2', 0, '%');
+  show('paco2', 'PaCO2', 0, ' mmHg');
+  show('pao2', 'PaO2', 0, ' mmHg');
+  show('spo2', 'SpO2', 0, ' %');
   const dp = derivedValueOf(d, 'driving_pressure');
-  if (dp) parts.push(`ΔP ${formatNumber(dp.value, 0)}`);
+  if (dp) {
+    parts.push(`ΔP ${formatNumber(dp.value, 0)} cmH2O`);
+    figures.push(`Driving pressure ${formatNumber(dp.value, 0)} cmH2O`);
+  }
   const readings = (d?.interpretations ?? []).filter((i) => i.notable).map((i) => i.text);
   return {
     label: tp.label,
     text: parts.length > 0 ? parts.join(' · ') : tp.label,
-    tooltip: [`${tp.label}`, ...readings, 'Decision support only — defer to local protocols and licensed practice.'].join('\n'),
+    tooltip: [`${tp.label}`, ...figures, ...readings, 'Decision support only — defer to local protocols and licensed practice.'].join('\n'),
   };
 }
