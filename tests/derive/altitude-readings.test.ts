@@ -17,19 +17,19 @@ describe('at PB 600 mmHg', () => {
 
   it('hypoxaemia with a normal PaCO2 and gradient is type 1 from low inspired oxygen alone (PAO2 116.1 − 50 = 66.1, A–a 8 mmHg)', () => {
     const r = readings(at(600, 'abg 7.39/40/58/24'));
-    expect(r['respiratory-failure']).toBe('Consistent with type 1 (hypoxaemic) respiratory failure: hypoxaemia with normal or low PaCO2.');
+    expect(r['respiratory-failure']).toBe('Consistent with type 1 (hypoxaemic) respiratory failure: hypoxaemia with normal or low PaCO2 (PaO2 58 mmHg, below 60 mmHg; PaCO2 40 mmHg, not above 50 mmHg).');
     expect(r['hypoxaemia-mechanism']).toBe('Hypoxaemia consistent with low inspired oxygen (PiO2 116 mmHg). The A–a gradient (8 mmHg) is within the age-based normal of 14 mmHg.');
   });
 
   it('hypoventilation there is type 2, from low inspired oxygen and hypoventilation with a normal gradient (PAO2 116.1 − 72.5 = 43.6, A–a 4 mmHg)', () => {
     const r = readings(at(600, 'abg 7.30/58/40/27.8'));
-    expect(r['respiratory-failure']).toBe('Consistent with type 2 (hypercapnic) respiratory failure: hypoxaemia with hypercapnia.');
+    expect(r['respiratory-failure']).toBe('Consistent with type 2 (hypercapnic) respiratory failure: hypoxaemia with hypercapnia (PaO2 40 mmHg, below 60 mmHg; PaCO2 58 mmHg, above 50 mmHg).');
     expect(r['hypoxaemia-mechanism']).toBe('Hypoxaemia consistent with a mix of low inspired oxygen (PiO2 116 mmHg) and hypoventilation (PaCO2 58 mmHg). The A–a gradient (4 mmHg) is within the age-based normal of 14 mmHg.');
   });
 
   it('a raised gradient there adds V/Q mismatch or shunt (PAO2 116.1 − 37.5 = 78.6, A–a 34 mmHg)', () => {
     const r = readings(at(600, 'abg 7.48/30/45/22.3'));
-    expect(r['respiratory-failure']).toBe('Consistent with type 1 (hypoxaemic) respiratory failure: hypoxaemia with normal or low PaCO2.');
+    expect(r['respiratory-failure']).toBe('Consistent with type 1 (hypoxaemic) respiratory failure: hypoxaemia with normal or low PaCO2 (PaO2 45 mmHg, below 60 mmHg; PaCO2 30 mmHg, not above 50 mmHg).');
     expect(r['hypoxaemia-mechanism']).toBe('Hypoxaemia consistent with a mix of low inspired oxygen (PiO2 116 mmHg) and a raised A–a gradient (34 mmHg, above 14 mmHg): V/Q mismatch, shunt or a diffusion limit.');
   });
 });

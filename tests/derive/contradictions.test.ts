@@ -38,18 +38,18 @@ describe('hypercapnia without hypoxaemia (hypoxaemia PaO2 < 60, hypercapnia PaCO
   it('makes no negative statement when no FiO2 is stated: oxygen may hold the PaO2 up', () => {
     // On air at PB 760, PAO2 = 0.21 × 713 − 60 ÷ 0.8 ≈ 75 mmHg: a PaO2 of 90 would need oxygen.
     const r = readings('@ 08:00\nabg 7.24/60/90/26');
-    expect(r['respiratory-failure']).toMatch(/^Hypercapnia with a PaO2 above 60 mmHg and no FiO2 stated: on supplemental oxygen this would be consistent with type 2 \(hypercapnic\) respiratory failure; add fio2 \(or an oxygen line\) to tell\.$/);
+    expect(r['respiratory-failure']).toMatch(/^Hypercapnia \(PaCO2 60 mmHg, above 50 mmHg\) with a PaO2 above 60 mmHg \(PaO2 90 mmHg\) and no FiO2 stated: on supplemental oxygen this would be consistent with type 2 \(hypercapnic\) respiratory failure; add fio2 \(or an oxygen line\) to tell\.$/);
     expect(r['respiratory-failure']).not.toMatch(/not consistent/);
   });
 
   it('reads an oxygen device without a stated FiO2 as oxygen holding the PaO2 up', () => {
     const r = readings('@ 08:00\noxygen cannula 4 L/min\nabg 7.26/72/81/31');
-    expect(r['respiratory-failure']).toBe('Consistent with type 2 (hypercapnic) respiratory failure, with PaO2 held up by supplemental oxygen (cannula, FiO2 not stated).');
+    expect(r['respiratory-failure']).toBe('Consistent with type 2 (hypercapnic) respiratory failure, with PaO2 held up by supplemental oxygen (PaCO2 72 mmHg, above 50 mmHg; PaO2 81 mmHg with oxygen by cannula, FiO2 not stated).');
   });
 
   it('says "not consistent with respiratory failure" only on air', () => {
     const r = readings('@ 08:00\noxygen room air\nabg 7.33/52/70/27');
-    expect(r['respiratory-failure']).toBe('Hypercapnia without hypoxaemia on air: not consistent with respiratory failure by the PaO2 criterion.');
+    expect(r['respiratory-failure']).toBe('Hypercapnia (PaCO2 52 mmHg, above 50 mmHg) without hypoxaemia on air (PaO2 70 mmHg, not below 60 mmHg): not consistent with respiratory failure by the PaO2 criterion.');
   });
 });
 

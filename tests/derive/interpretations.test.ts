@@ -44,7 +44,7 @@ describe('oxygenation, ventilation and respiratory failure', () => {
     const r = readings('patient age 40 y\n@ 08:00\noxygen room air\nabg 7.20/70/55/27');
     expect(r.oxygenation).toMatch(/consistent with moderate hypoxaemia/);
     expect(r.ventilation).toMatch(/consistent with hypercapnia/);
-    expect(r['respiratory-failure']).toBe('Consistent with type 2 (hypercapnic) respiratory failure: hypoxaemia with hypercapnia.');
+    expect(r['respiratory-failure']).toBe('Consistent with type 2 (hypercapnic) respiratory failure: hypoxaemia with hypercapnia (PaO2 55 mmHg, below 60 mmHg; PaCO2 70 mmHg, above 50 mmHg).');
     expect(r['hypoxaemia-mechanism']).toMatch(/^Hypoxaemia consistent with hypoventilation \(PaCO2 70 mmHg\)\. The A–a gradient \(\d mmHg\) is within the age-based normal of 14 mmHg\.$/);
   });
 
@@ -53,7 +53,7 @@ describe('oxygenation, ventilation and respiratory failure', () => {
     // pH 7.53; the calculated A–a gradient was about 5 mmHg (Grocott MPW et al., NEJM 2009;360:140–149,
     // from memory). HCO3 here is chosen to fit pH and PaCO2.
     const r = readings('patient age 35 y\nplace barometric 272 mmHg\n@ 08:00\noxygen room air\nabg ph 7.53, pco2 13.3, po2 24.6, hco3 11');
-    expect(r['respiratory-failure']).toBe('Consistent with type 1 (hypoxaemic) respiratory failure: hypoxaemia with normal or low PaCO2.');
+    expect(r['respiratory-failure']).toBe('Consistent with type 1 (hypoxaemic) respiratory failure: hypoxaemia with normal or low PaCO2 (PaO2 25 mmHg, below 60 mmHg; PaCO2 13 mmHg, not above 50 mmHg).');
     expect(r['hypoxaemia-mechanism']).toMatch(/^Hypoxaemia consistent with low inspired oxygen \(PiO2 47 mmHg\)\. The A–a gradient \(6 mmHg\) is within the age-based normal of 13 mmHg\./);
     expect(r.ventilation).toMatch(/consistent with hypocapnia/);
   });
@@ -65,7 +65,7 @@ describe('oxygenation, ventilation and respiratory failure', () => {
 
   it('reads hypercapnia held up by oxygen as type 2 failure', () => {
     const r = readings('@ 08:00\noxygen venturi, fio2 0.28\nabg 7.30/62/68/30');
-    expect(r['respiratory-failure']).toMatch(/^Consistent with type 2 \(hypercapnic\) respiratory failure, with PaO2 held up by supplemental oxygen \(FiO2 0\.28\)\.$/);
+    expect(r['respiratory-failure']).toMatch(/^Consistent with type 2 \(hypercapnic\) respiratory failure, with PaO2 held up by supplemental oxygen \(PaCO2 62 mmHg, above 50 mmHg; PaO2 68 mmHg on FiO2 0\.28\)\.$/);
   });
 
   it('names the Berlin oxygenation band only with PEEP or CPAP ≥ 5 cmH2O, and never as a diagnosis', () => {

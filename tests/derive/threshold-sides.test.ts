@@ -50,7 +50,7 @@ describe('PaO2 at 60 mmHg and just either side', () => {
   });
 
   it('a PaO2 at the threshold with hypercapnia and no FiO2 says "at", not "above"', () => {
-    expect(readings('@ 08:00\nabg 7.30/58/60/27.8')['respiratory-failure']).toMatch(/^Hypercapnia with a PaO2 at 60 mmHg and no FiO2 stated/);
+    expect(readings('@ 08:00\nabg 7.30/58/60/27.8')['respiratory-failure']).toMatch(/^Hypercapnia \(PaCO2 58 mmHg, above 50 mmHg\) with a PaO2 at 60 mmHg \(PaO2 60 mmHg\) and no FiO2 stated/);
   });
 });
 
@@ -62,15 +62,15 @@ describe('PaCO2 at 50 mmHg and just either side', () => {
   it('50.1 mmHg is hypercapnia (with hypoxaemia: type 2); 49.9 mmHg is below the threshold', () => {
     const above = readings(`${AIR}abg 7.35/50.1/59.9/27.2`);
     expect(above.ventilation).toBe('PaCO2 50.1 mmHg: consistent with hypercapnia (above 50 mmHg): ventilation is not clearing CO2.');
-    expect(above['respiratory-failure']).toBe('Consistent with type 2 (hypercapnic) respiratory failure: hypoxaemia with hypercapnia.');
+    expect(above['respiratory-failure']).toBe('Consistent with type 2 (hypercapnic) respiratory failure: hypoxaemia with hypercapnia (PaO2 59.9 mmHg, below 60 mmHg; PaCO2 50.1 mmHg, above 50 mmHg).');
     expect(readings(`${AIR}abg 7.37/49.9/60.1/28`).ventilation).toBe('PaCO2 49.9 mmHg: consistent with a mildly raised PaCO2, below the hypercapnia threshold of 50 mmHg.');
   });
 
   it('6.7 kPa with a PaO2 of 7.9 kPa is type 1, as 50 mmHg with 59 mmHg is; 6.8 kPa is type 2', () => {
-    expect(readings(`${KPA}abg ph 7.36, pco2 6.7, po2 7.9, hco3 27.6`)['respiratory-failure']).toBe('Consistent with type 1 (hypoxaemic) respiratory failure: hypoxaemia with normal or low PaCO2.');
-    expect(readings(`${AIR}abg 7.36/50/59/27.5`)['respiratory-failure']).toBe('Consistent with type 1 (hypoxaemic) respiratory failure: hypoxaemia with normal or low PaCO2.');
+    expect(readings(`${KPA}abg ph 7.36, pco2 6.7, po2 7.9, hco3 27.6`)['respiratory-failure']).toBe('Consistent with type 1 (hypoxaemic) respiratory failure: hypoxaemia with normal or low PaCO2 (PaO2 7.9 kPa (59 mmHg), below 8.0 kPa; PaCO2 6.7 kPa (50 mmHg), not above 6.7 kPa).');
+    expect(readings(`${AIR}abg 7.36/50/59/27.5`)['respiratory-failure']).toBe('Consistent with type 1 (hypoxaemic) respiratory failure: hypoxaemia with normal or low PaCO2 (PaO2 59 mmHg, below 60 mmHg; PaCO2 50 mmHg, not above 50 mmHg).');
     const r = readings(`${KPA}abg ph 7.35, pco2 6.8, po2 7.9, hco3 27.6`);
-    expect(r['respiratory-failure']).toBe('Consistent with type 2 (hypercapnic) respiratory failure: hypoxaemia with hypercapnia.');
+    expect(r['respiratory-failure']).toBe('Consistent with type 2 (hypercapnic) respiratory failure: hypoxaemia with hypercapnia (PaO2 7.9 kPa (59 mmHg), below 8.0 kPa; PaCO2 6.8 kPa (51 mmHg), above 6.7 kPa).');
     expect(r.ventilation).toBe('PaCO2 6.8 kPa (51 mmHg): consistent with hypercapnia (above 6.7 kPa): ventilation is not clearing CO2.');
   });
 

@@ -188,13 +188,20 @@ export function interpret(c: DeriveContext, settings: Settings): Interpretation[
   if (pao2 && paco2 && impossible) {
     push('respiratory-failure', `Respiratory failure not read: ${notRead}.`, ['pao2', 'paco2', 'pao2_alveolar'], false);
   } else if (pao2 && paco2) {
-    if (hypoxaemic && hypercapnic) push('respiratory-failure', 'Consistent with type 2 (hypercapnic) respiratory failure: hypoxaemia with hypercapnia.', ['pao2', 'paco2']);
-    else if (hypoxaemic) push('respiratory-failure', 'Consistent with type 1 (hypoxaemic) respiratory failure: hypoxaemia with normal or low PaCO2.', ['pao2', 'paco2']);
-    else if (hypercapnic && onOxygen) push('respiratory-failure', `Consistent with type 2 (hypercapnic) respiratory failure, with PaO2 held up by supplemental oxygen (${fio2Words(fio2)}).`, ['pao2', 'paco2', 'fio2']);
-    else if (hypercapnic && oxygenDevice !== null) push('respiratory-failure', `Consistent with type 2 (hypercapnic) respiratory failure, with PaO2 held up by supplemental oxygen (${oxygenDevice}, FiO2 not stated).`, ['pao2', 'paco2', 'device']);
+    // The numbers each reading rests on, with the threshold each is read against: `PaO2 52 mmHg, below
+    // 60 mmHg`, `PaCO2 50 mmHg, not above 50 mmHg` (a value on a threshold is on neither side).
+    const o2At = settings.hypoxaemiaBelowMmhg;
+    const co2At = settings.hypercapniaAboveMmhg;
+    const o2 = `PaO2 ${gas.measured(pao2.value, o2Resolution, o2At)}`;
+    const o2Side = `${hypoxaemic ? 'below' : 'not below'} ${sideOf(pao2.value, o2At, o2Resolution) === 0 ? gas.on(o2At, o2Resolution) : gas.threshold(o2At, pao2.value)}`;
+    const co2 = `PaCO2 ${gas.measured(paco2.value, co2Resolution, co2At)}, ${hypercapnic ? 'above' : 'not above'} ${sideOf(paco2.value, co2At, co2Resolution) === 0 ? gas.on(co2At, co2Resolution) : gas.threshold(co2At, paco2.value)}`;
+    if (hypoxaemic && hypercapnic) push('respiratory-failure', `Consistent with type 2 (hypercapnic) respiratory failure: hypoxaemia with hypercapnia (${o2}, ${o2Side}; ${co2}).`, ['pao2', 'paco2']);
+    else if (hypoxaemic) push('respiratory-failure', `Consistent with type 1 (hypoxaemic) respiratory failure: hypoxaemia with normal or low PaCO2 (${o2}, ${o2Side}; ${co2}).`, ['pao2', 'paco2']);
+    else if (hypercapnic && onOxygen) push('respiratory-failure', `Consistent with type 2 (hypercapnic) respiratory failure, with PaO2 held up by supplemental oxygen (${co2}; ${o2} on ${fio2Words(fio2)}).`, ['pao2', 'paco2', 'fio2']);
+    else if (hypercapnic && oxygenDevice !== null) push('respiratory-failure', `Consistent with type 2 (hypercapnic) respiratory failure, with PaO2 held up by supplemental oxygen (${co2}; ${o2} with oxygen by ${oxygenDevice}, FiO2 not stated).`, ['pao2', 'paco2', 'device']);
     // FiO2 unknown: oxygen may be holding the PaO2 up, so no negative statement is made.
-    else if (hypercapnic && fio2 === null) push('respiratory-failure', `Hypercapnia with a PaO2 ${sideOf(pao2.value, settings.hypoxaemiaBelowMmhg, o2Resolution) === 0 ? `at ${gas.on(settings.hypoxaemiaBelowMmhg, o2Resolution)}` : `above ${gas.threshold(settings.hypoxaemiaBelowMmhg, pao2.value)}`} and no FiO2 stated: on supplemental oxygen this would be consistent with type 2 (hypercapnic) respiratory failure; add ${c.fio2Need()} to tell.`, ['pao2', 'paco2']);
-    else if (hypercapnic) push('respiratory-failure', 'Hypercapnia without hypoxaemia on air: not consistent with respiratory failure by the PaO2 criterion.', ['pao2', 'paco2', 'fio2'], false);
+    else if (hypercapnic && fio2 === null) push('respiratory-failure', `Hypercapnia (${co2}) with a PaO2 ${sideOf(pao2.value, o2At, o2Resolution) === 0 ? `at ${gas.on(o2At, o2Resolution)}` : `above ${gas.threshold(o2At, pao2.value)}`} (${o2}) and no FiO2 stated: on supplemental oxygen this would be consistent with type 2 (hypercapnic) respiratory failure; add ${c.fio2Need()} to tell.`, ['pao2', 'paco2']);
+    else if (hypercapnic) push('respiratory-failure', `Hypercapnia (${co2}) without hypoxaemia on air (${o2}, ${o2Side}): not consistent with respiratory failure by the PaO2 criterion.`, ['pao2', 'paco2', 'fio2'], false);
   }
 
   // Mechanism of hypoxaemia
