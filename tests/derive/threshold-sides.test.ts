@@ -49,8 +49,8 @@ describe('PaO2 at 60 mmHg and just either side', () => {
     expect(readings(`${KPA}abg ph 7.38, pco2 6.5, po2 8.1, hco3 28`).oxygenation).toMatch(/^PaO2 8\.1 kPa \(61 mmHg\): consistent with mildly reduced oxygenation, above the hypoxaemia threshold of 8\.0 kPa\.$/);
   });
 
-  it('a PaO2 at the threshold with hypercapnia and no FiO2 says "at", not "above"', () => {
-    expect(readings('@ 08:00\nabg 7.30/58/60/27.8')['respiratory-failure']).toMatch(/^Hypercapnia \(PaCO2 58 mmHg, above 50 mmHg\) with a PaO2 at 60 mmHg \(PaO2 60 mmHg\) and no FiO2 stated/);
+  it('a PaO2 at the threshold with hypercapnia and no FiO2 is "not below" it, never "above" it', () => {
+    expect(readings('@ 08:00\nabg 7.30/58/60/27.8')['respiratory-failure']).toMatch(/^Hypercapnia \(PaCO2 58 mmHg, above 50 mmHg\) with PaO2 60 mmHg, not below 60 mmHg, and no FiO2 stated/);
   });
 });
 

@@ -200,7 +200,7 @@ export function interpret(c: DeriveContext, settings: Settings): Interpretation[
     else if (hypercapnic && onOxygen) push('respiratory-failure', `Consistent with type 2 (hypercapnic) respiratory failure, with PaO2 held up by supplemental oxygen (${co2}; ${o2} on ${fio2Words(fio2)}).`, ['pao2', 'paco2', 'fio2']);
     else if (hypercapnic && oxygenDevice !== null) push('respiratory-failure', `Consistent with type 2 (hypercapnic) respiratory failure, with PaO2 held up by supplemental oxygen (${co2}; ${o2} with oxygen by ${oxygenDevice}, FiO2 not stated).`, ['pao2', 'paco2', 'device']);
     // FiO2 unknown: oxygen may be holding the PaO2 up, so no negative statement is made.
-    else if (hypercapnic && fio2 === null) push('respiratory-failure', `Hypercapnia (${co2}) with a PaO2 ${sideOf(pao2.value, o2At, o2Resolution) === 0 ? `at ${gas.on(o2At, o2Resolution)}` : `above ${gas.threshold(o2At, pao2.value)}`} (${o2}) and no FiO2 stated: on supplemental oxygen this would be consistent with type 2 (hypercapnic) respiratory failure; add ${c.fio2Need()} to tell.`, ['pao2', 'paco2']);
+    else if (hypercapnic && fio2 === null) push('respiratory-failure', `Hypercapnia (${co2}) with ${o2}, ${o2Side}, and no FiO2 stated: on supplemental oxygen this would be consistent with type 2 (hypercapnic) respiratory failure; add ${c.fio2Need()} to tell.`, ['pao2', 'paco2']);
     else if (hypercapnic) push('respiratory-failure', `Hypercapnia (${co2}) without hypoxaemia on air (${o2}, ${o2Side}): not consistent with respiratory failure by the PaO2 criterion.`, ['pao2', 'paco2', 'fio2'], false);
   }
 
