@@ -243,11 +243,14 @@ function mechanism(c: DeriveContext, settings: Settings, line: number | null, ga
   const limitShown = gas.limit(limit, gradient.value);
   if (raised) causes.push(`a raised A–a gradient (${gradientShown}, above ${limitShown}): V/Q mismatch, shunt or a diffusion limit`);
   const normalGradient = raised ? '' : ` The A–a gradient (${gradientShown}) is within the ${upper ? 'age-based ' : ''}normal of ${limitShown}${upper ? '' : ' (age unknown)'}.`;
-  const onOxygen = (c.fio2()?.value ?? 0.21) > 0.21 + 1e-9;
+  const fio2 = c.fio2();
+  const onOxygen = (fio2?.value ?? 0.21) > 0.21 + 1e-9;
   const caveat = onOxygen ? ' On supplemental oxygen the normal gradient is wider than the air-based limit.' : '';
-  if (causes.length === 0) return [{ topic: 'hypoxaemia-mechanism', text: `Hypoxaemia without a low PiO2, hypercapnia or a raised A–a gradient: recheck the inputs.${normalGradient}${caveat}`, basis, line, notable: true }];
+  // The PiO2 (and so the gradient) rests on the FiO2: say so when it was stated at an earlier timepoint.
+  const carried = fio2 !== null && fio2.origin.kind === 'carried' ? ` The PiO2 uses ${fio2Words(fio2)}.` : '';
+  if (causes.length === 0) return [{ topic: 'hypoxaemia-mechanism', text: `Hypoxaemia without a low PiO2, hypercapnia or a raised A–a gradient: recheck the inputs.${normalGradient}${carried}${caveat}`, basis, line, notable: true }];
   const text = causes.length === 1 ? `Hypoxaemia consistent with ${causes[0]}.` : `Hypoxaemia consistent with a mix of ${wordList(causes)}.`;
-  return [{ topic: 'hypoxaemia-mechanism', text: `${text}${normalGradient}${caveat}`, basis, line, notable: true }];
+  return [{ topic: 'hypoxaemia-mechanism', text: `${text}${normalGradient}${carried}${caveat}`, basis, line, notable: true }];
 }
 
 /**
