@@ -127,10 +127,11 @@ describe('typing a note with CRLF line endings, tabs and emoji', () => {
     const toMmhg = (await note.actions({ line: 2, character: 19 })).find((a) => a.title === 'Convert every gas pressure in the note to mmHg');
     await note.edit(toMmhg!.edit!.changes![note.uri]!);
     expect(note.lines()[0]).toBe('units     gas mmHg');
-    expect(note.lines()[3]).toBe('abg ph 7.31, pco2 53 mmHg, po2 68 mmHg');
+    // 9.0 kPa is 67.5 mmHg: 68 mmHg would come back as 9.1 kPa.
+    expect(note.lines()[3]).toBe('abg ph 7.31, pco2 53 mmHg, po2 67.5 mmHg');
     const toKpa = (await note.actions({ line: 3, character: 19 })).find((a) => a.title === 'Convert every gas pressure in the note to kPa');
     await note.edit(toKpa!.edit!.changes![note.uri]!);
-    expect(note.lines()[3]).toBe('abg ph 7.31, pco2 7.1 kPa, po2 9.1 kPa');
+    expect(note.lines()[3]).toBe('abg ph 7.31, pco2 7.1 kPa, po2 9.0 kPa');
     expect(note.text.split('\r\n').length).toBe(note.lines().length);
 
     // Formatting: once, then nothing more to do; tabs become the layout, the emoji stay.

@@ -89,6 +89,19 @@ describe('the value under the cursor in the other unit', () => {
     expect(after('abg 7.28/7.5/9|.5/26 kPa, be -2', 'Write the shorthand gas pressures in mmHg')).toBe('abg 7.28/56/71/26 mmHg, be -2');
   });
 
+  it('writes one more decimal where the usual ones would not convert back to the number written', () => {
+    // 9.0 kPa = 67.5 mmHg (1 kPa = 7.50062 mmHg); 68 mmHg would be 9.1 kPa.
+    expect(after('abg po2 9.|0 kPa', 'Write po2 in mmHg')).toBe('abg po2 67.5 mmHg');
+    expect(after('abg po2 67.|5 mmHg', 'Write po2 in kPa')).toBe('abg po2 9.0 kPa');
+    // 28.5 % is 0.285; 0.29 would be 29 %.
+    expect(after('vent fio2 28.|5 %', 'Write fio2 as a fraction')).toBe('vent fio2 0.285');
+    expect(after('labs hb 11.8|5', 'Write hb in g/L')).toBe('labs hb 118.5 g/L');
+    // The usual decimals where they are enough.
+    expect(after('abg po2 9.|5 kPa', 'Write po2 in mmHg')).toBe('abg po2 71 mmHg');
+    // Not rounded past what is possible: an EtCO2 of 200 mmHg (its upper bound) is 26.66 kPa, not 26.7 (200.3 mmHg).
+    expect(after('vitals etco2 20|0', 'Write etco2 in kPa')).toBe('vitals etco2 26.66 kPa');
+  });
+
   it('offers no conversion for a doubtful or impossible value', () => {
     expect(actions('abg po2 9.|1').list.filter((a) => a.title.startsWith('Write po2 in'))).toEqual([]);
     expect(actions('vent fio2 1|4').list.filter((a) => a.title.startsWith('Write fio2 in'))).toEqual([]);
@@ -321,6 +334,29 @@ describe('action properties', () => {
       }
     }), { numRuns: ACTION_RUNS });
   }, 60_000);
+
+  it(`a value written in the other unit and back is the number the note wrote (${ACTION_RUNS} generated notes)`, () => {
+    fc.assert(fc.property(notes, (text) => {
+      const result = checkNote(text);
+      for (const s of stated(result)) {
+        if (!s.item.value || s.item.value.kind !== 'number' || s.item.implied === 'shorthand') continue;
+        const at = { line: s.line, character: s.item.value.span.start };
+        const there = codeActions(result, { start: at, end: at }).find((a) => /^Write \S+ (in|as) /.test(a.title));
+        if (!there) continue;
+        const converted = applyEdits(text, there.edits);
+        const again = checkNote(converted);
+        const item = again.analysis.tree.lines[s.line]?.kind === 'section' ? stated(again).find((o) => o.line === s.line && o.item.span.start === s.item.span.start) : undefined;
+        expect(item?.item.value, there.title).toBeTruthy();
+        const back = codeActions(again, { start: { line: s.line, character: item!.item.value!.span.start }, end: { line: s.line, character: item!.item.value!.span.start } }).find((a) => /^Write \S+ (in|as) /.test(a.title));
+        expect(back, `${there.title}: and back`).toBeDefined();
+        const returned = checkNote(applyEdits(converted, back!.edits)).analysis.tree.lines[s.line];
+        const value = returned?.kind === 'section' ? returned.items.find((i) => i.span.start === s.item.span.start)?.value?.text : undefined;
+        const written = s.item.value.text.replace(',', '.');
+        const decimals = written.includes('.') ? written.length - written.indexOf('.') - 1 : 0;
+        expect(Number(value).toFixed(decimals), `${JSON.stringify(text.split(/\r\n|\r|\n/)[s.line])}: ${there.title}, then ${back!.title}`).toBe(Number(written).toFixed(decimals));
+      }
+    }), { numRuns: ACTION_RUNS });
+  });
 
   it(`convertNoteUnits reads back to the same values within rounding, both ways (${ACTION_RUNS} generated notes)`, () => {
     fc.assert(fc.property(notes, fc.constantFrom('mmHg' as const, 'kPa' as const), (text, to) => {

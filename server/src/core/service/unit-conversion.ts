@@ -4,7 +4,8 @@
  * pressure of a note in mmHg or kPa and sets the note's `units gas` line to match.
  *
  * Rounding: kPa 1 decimal, mmHg 0, FiO2 fraction 2, FiO2 % 0 (1 when needed), °C/°F 1,
- * g/L 0, g/dL 1. A converted number always gets its unit written, except a fraction.
+ * g/L 0, g/dL 1, and one or two more where these would not convert back to the number as
+ * written (`numberIn`). A converted number always gets its unit written, except a fraction.
  */
 import type { NoteResult } from '../check-note';
 import type { StatedValue } from '../analysis/model';
@@ -35,15 +36,45 @@ export function otherUnit(s: StatedValue): string | null {
   return null;
 }
 
-/** A canonical value written as a number in `to`, with that unit's usual decimals. */
+/**
+ * A canonical value written as a number in `to`, with that unit's usual decimals, or one or two
+ * more where those would not convert back to the number as the note wrote it: 9.0 kPa is written
+ * 67.5 mmHg, not 68 (which is 9.1 kPa), and 28.5 % is 0.285, not 0.29 (29 %). So converting a
+ * value there and back gives the number written, and a possible value is not rounded past what
+ * is possible.
+ */
 export function numberIn(s: StatedValue, field: FieldDef, to: string): string | null {
   const canonical = unitById(s.unit ?? '');
   const target = unitById(to);
   if (!canonical || !target || s.value === null) return null;
   const v = convert(s.value, canonical, target);
   if (v === null) return null;
-  if (to === '%') return formatShort(v, Number.isInteger(Math.round(v * 10) / 10) ? 0 : 1);
-  return formatNumber(v, to === 'mmHg' ? 0 : decimalsFor(to, field.decimals));
+  const usual = to === '%' ? (Number.isInteger(Math.round(v * 10) / 10) ? 0 : 1) : to === 'mmHg' ? 0 : decimalsFor(to, field.decimals);
+  const write = (decimals: number) => (to === '%' ? formatShort(v, decimals) : formatNumber(v, decimals));
+  const written = writtenNumber(s);
+  const from = s.readUnit ? unitById(s.readUnit) : undefined;
+  // A possible value stays possible (200 mmHg, the most an EtCO2 can be, is 26.66 kPa: 26.7 kPa is over it).
+  const possible = within(s.value, field.hard);
+  if (written && from && from.id !== target.id) {
+    for (let decimals = usual; decimals <= usual + 2; decimals++) {
+      const text = write(decimals);
+      const back = convert(Number(text), target, from);
+      const read = convert(Number(text), target, canonical);
+      if (back !== null && formatNumber(back, written.decimals) === formatNumber(written.value, written.decimals) && (!possible || (read !== null && within(read, field.hard)))) return text;
+    }
+  }
+  return write(usual);
+}
+
+/** The number of a stated value as the note wrote it, with its decimals (a decimal comma read as a point). */
+function writtenNumber(s: StatedValue): { value: number; decimals: number } | null {
+  const value = s.item.value;
+  if (!value || value.kind !== 'number') return null;
+  const text = value.text.replace(',', '.');
+  const n = Number(text);
+  if (!Number.isFinite(n)) return null;
+  const point = text.indexOf('.');
+  return { value: n, decimals: point < 0 ? 0 : text.length - point - 1 };
 }
 
 /** Whether a written unit token reads as the unit id for this field. */
