@@ -210,7 +210,8 @@ export function interpret(c: DeriveContext, settings: Settings): Interpretation[
   // Acid–base
   const cls = classification(c);
   if (cls && !cls.consistency.consistent) {
-    push('acid-base', `Acid–base not interpreted: the reported HCO3 differs from the ${formatNumber(cls.consistency.calculatedHco3MmolL, 1)} mmol/L that pH and PaCO2 give (see PN402).`, ['ph', 'paco2', 'hco3'], false);
+    const stated = (id: string) => c.field(id)?.value ?? NaN;
+    push('acid-base', `Acid–base not interpreted: the reported HCO3 ${formatNumber(stated('hco3'), HCO3_DECIMALS)} mmol/L differs from the ${formatNumber(cls.consistency.calculatedHco3MmolL, HCO3_DECIMALS)} mmol/L that pH ${formatNumber(stated('ph'), PH_DECIMALS)} and PaCO2 ${gas.measured(stated('paco2'), c.writtenResolutionMmhg('paco2'))} give (see PN402), so neither the disorder nor its expected compensation is worked out.`, ['ph', 'paco2', 'hco3'], false);
   } else if (cls) {
     const gapCorrected = c.derivedValue('anion_gap_albumin_corrected') !== null;
     const ph = c.field('ph')?.value ?? NaN;
