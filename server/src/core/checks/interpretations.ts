@@ -57,7 +57,7 @@ export const oxygenationReading = interpretationCheck('PN410', 'oxygenation-read
 });
 
 export const ventilationReading = interpretationCheck('PN411', 'ventilation-reading', 'Ventilation reading', ['ventilation'], 'hypercapnia PaCO2 > 50 mmHg and hypocapnia < 35 mmHg (settings): common practice, no source', {
-  fires: 'PaCO2 is above the hypercapnia threshold or below the hypocapnia threshold.',
+  fires: 'PaCO2 is above the hypercapnia threshold or below the hypocapnia threshold. A PaCO2 on a threshold is on neither side (50 mmHg is not hypercapnia), and one written in kPa is read at the resolution it was written with, so 6.7 kPa is on the 50 mmHg threshold as 50 mmHg is.',
   example: '@ 08:00\nabg 7.25/68/70/29',
   fix: READING_FIX,
 });
@@ -69,7 +69,7 @@ export const respiratoryFailureReading = interpretationCheck('PN412', 'respirato
 });
 
 export const acidBaseReading = interpretationCheck('PN413', 'acid-base-reading', 'Acid–base reading', ['acid-base'], "primary disorder and compensation: Albert, Dell & Winters 1967; Narins & Emmett 1980; Adrogué & Madias 2010; Berend et al. 2014 (from memory)", {
-  fires: 'The gas is consistent with an acid–base disorder: the primary disorder, whether the compensation is in the expected range, a second disorder the values are also consistent with, and acute versus chronic for a respiratory disorder.',
+  fires: 'The gas is consistent with an acid–base disorder: the primary disorder, whether the compensation is in the expected range, a second disorder the values are also consistent with, and acute versus chronic for a respiratory disorder, each with the numbers it rests on. A gas whose pH, PaCO2 and HCO3 do not fit together (PN402) is not interpreted, and no expected compensation is worked out from it.',
   example: '@ 08:00\nabg 7.21/24/95/9.5',
   fix: READING_FIX,
 });
