@@ -233,6 +233,8 @@ describe('a gas written with its unit', () => {
     const inMmhg = checkNote(note('units gas kPa', '@ 08:00', 'oxygen venturi, fio2 0.4', 'abg ph 7.30, pco2 56 mmHg, po2 71 mmHg'));
     expect(inMmhg.analysis.timeline.timepoints[0]?.shownGasUnit).toBe('mmHg');
     expect(timepointSummary(inMmhg, 3)?.text).toBe('P/F 178 mmHg · pH 7.30 · PaCO2 56 mmHg · PaO2 71 mmHg');
+    // Its hints say mmHg, where the note's other hints are in kPa (a bare 178 would read as either).
+    expect(hintsOn(inMmhg, 3)[0]?.label).toMatch(/^P\/F 178 mmHg · A–a \d+ mmHg$/);
     const mixed = checkNote(note('units gas kPa', '@ 08:00', 'oxygen venturi, fio2 0.4', 'abg ph 7.32, pco2 7.2, po2 73.5 mmHg'));
     expect(mixed.analysis.timeline.timepoints[0]?.shownGasUnit).toBe('kPa');
     expect(timepointSummary(mixed, 3)?.text).toMatch(/^P\/F 24\.5 kPa \(184\)/);

@@ -157,7 +157,9 @@ export function inlayHints(result: NoteResult, lines: LineSpan, options: HintOpt
           if (!inRange(line) || shown.has(`${line}:${d.id}`)) continue;
           const shownAt = isHeaderLine(result, line) ? asOnHeader(tp, result.analysis.timeline.headerGasUnit) : tp;
           const kpa = derivedInKpa(d, shownAt);
-          const n = `${hintNumber(d, kpa, pick.unit === true)}${d.usesCarried ? CARRIED_MARK : ''}`;
+          // In a note whose gas unit is kPa, a pressure shown in mmHg (its gas was written in mmHg) says so.
+          const mmhgInKpaNote = !kpa && d.unit === 'mmHg' && shownAt.gasUnit === 'kPa';
+          const n = `${hintNumber(d, kpa, pick.unit === true || mmhgInKpaNote)}${d.usesCarried ? CARRIED_MARK : ''}`;
           const label = pick.text(n, d, all.filter((v) => v.line === d.line), kpa);
           if (!label) continue;
           shown.add(`${line}:${d.id}`);
