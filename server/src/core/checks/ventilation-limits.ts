@@ -1,14 +1,13 @@
 /** Ventilator settings beyond the usual lung-protective limits. */
-import { PLATEAU_LIMIT_CMH2O, SOURCES } from '../physiology';
+import { DRIVING_PRESSURE_FLAG_CMH2O, LUNG_PROTECTIVE_VT_MAX_ML_PER_KG, PLATEAU_LIMIT_CMH2O, SOURCES } from '../physiology';
 import { toRange } from '../syntax/tree';
 import { formatAgainst } from '../util/format';
 import { derivedValueOf } from '../derive/registry';
 import { defineCheck, type TimepointContext } from './check';
 
-/** Upper end of the tidal-volume range of the ARDS Network protocol (mL/kg PBW). */
-export const VT_PER_KG_LIMIT = 8;
-/** Driving pressure commonly flagged (cmH2O) (common practice, after Amato 2015). */
-export const DRIVING_PRESSURE_LIMIT_CMH2O = 15;
+/** The limits live with the formulas, so the check and the values shown beside it read the same numbers. */
+const VT_PER_KG_LIMIT = LUNG_PROTECTIVE_VT_MAX_ML_PER_KG;
+const DRIVING_PRESSURE_LIMIT_CMH2O = DRIVING_PRESSURE_FLAG_CMH2O;
 
 function derivedAbove(ctx: TimepointContext, id: string, limit: number, anchorField: string, message: (v: number) => string): void {
   if (ctx.timepoint.values.originOf(anchorField) !== 'here') return;
