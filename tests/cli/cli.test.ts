@@ -159,6 +159,16 @@ describe('pneumark show', async () => {
     expect(parsed.files[0]!.timepoints[1]!.readings.length).toBeGreaterThan(0);
   });
 
+  it('lists in the JSON the values withheld at a timepoint, with the reason (a gas PN402 doubts holds back its expected compensation)', async () => {
+    const out = io('@ 08:00\noxygen room air\nabg ph 7.40, pco2 40, po2 90, hco3 15\n');
+    await run(['check', '--format', 'json', '-'], out);
+    const parsed = JSON.parse(out.out()) as { files: { timepoints: { notApplicable: { id: string; reason: string }[] }[] }[] };
+    const withheld = parsed.files[0]!.timepoints[0]!.notApplicable;
+    // pH 7.40 and PaCO2 40 mmHg give HCO3 24.5 mmol/L (Henderson–Hasselbalch, pK 6.1, CO2 solubility 0.0307 mmol/L/mmHg; from memory).
+    expect(withheld.find((n) => n.id === 'paco2_expected')?.reason).toMatch(/^the pH, PaCO2 and HCO3 stated do not fit together \(pH and PaCO2 give HCO3 24\.5 mmol\/L; see PN402\)/);
+    expect(withheld.map((n) => n.id)).toEqual(expect.arrayContaining(['hco3_expected_acute', 'hco3_expected_chronic']));
+  });
+
   it('uses colour on a terminal unless NO_COLOR is set', async () => {
     const tty = io('', {});
     tty.stdout.isTTY = true;
