@@ -201,7 +201,8 @@ export function interpret(c: DeriveContext, settings: Settings): Interpretation[
     else if (hypercapnic && oxygenDevice !== null) push('respiratory-failure', `Consistent with type 2 (hypercapnic) respiratory failure, with PaO2 held up by supplemental oxygen (${co2}; ${o2} with oxygen by ${oxygenDevice}, FiO2 not stated).`, ['pao2', 'paco2', 'device']);
     // FiO2 unknown: oxygen may be holding the PaO2 up, so no negative statement is made.
     else if (hypercapnic && fio2 === null) push('respiratory-failure', `Hypercapnia (${co2}) with ${o2}, ${o2Side}, and no FiO2 stated: on supplemental oxygen this would be consistent with type 2 (hypercapnic) respiratory failure; add ${c.fio2Need()} to tell.`, ['pao2', 'paco2']);
-    else if (hypercapnic) push('respiratory-failure', `Hypercapnia (${co2}) without hypoxaemia on air (${o2}, ${o2Side}): not consistent with respiratory failure by the PaO2 criterion.`, ['pao2', 'paco2', 'fio2'], false);
+    // Hypercapnia on air is ventilatory failure whatever the PaO2; the type 2 reading here also needs hypoxaemia, and says so rather than calling it no failure.
+    else if (hypercapnic) push('respiratory-failure', `Hypercapnia (${co2}) without hypoxaemia on air (${o2}, ${o2Side}): consistent with ventilatory (hypercapnic) failure; the type 2 respiratory failure read here also needs hypoxaemia.`, ['pao2', 'paco2', 'fio2']);
   }
 
   // Mechanism of hypoxaemia
