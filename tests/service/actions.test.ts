@@ -98,8 +98,10 @@ describe('the value under the cursor in the other unit', () => {
     expect(after('labs hb 11.8|5', 'Write hb in g/L')).toBe('labs hb 118.5 g/L');
     // The usual decimals where they are enough.
     expect(after('abg po2 9.|5 kPa', 'Write po2 in mmHg')).toBe('abg po2 71 mmHg');
-    // Not rounded past what is possible: an EtCO2 of 200 mmHg (its upper bound) is 26.66 kPa, not 26.7 (200.3 mmHg).
-    expect(after('vitals etco2 20|0', 'Write etco2 in kPa')).toBe('vitals etco2 26.66 kPa');
+    // Not rounded past what is possible: an EtCO2 of 200 mmHg (its upper bound) is 26.6 kPa (199.5 mmHg), not 26.7 (200.3 mmHg).
+    expect(after('vitals etco2 20|0', 'Write etco2 in kPa')).toBe('vitals etco2 26.6 kPa');
+    // PaO2 10 mmHg, its least, is 1.34 kPa (10.05 mmHg): 1.3 kPa would be 9.75 mmHg.
+    expect(after('abg po2 1|0 mmHg', 'Write po2 in kPa')).toBe('abg po2 1.34 kPa');
   });
 
   it('offers no conversion for a doubtful or impossible value', () => {
@@ -335,11 +337,17 @@ describe('action properties', () => {
     }), { numRuns: ACTION_RUNS });
   }, 60_000);
 
+  /** Decimals a value is usually written with in each unit (more than these cannot always come back from a coarser unit). */
+  const USUAL_DECIMALS: Readonly<Record<string, number>> = { kPa: 1, mmHg: 0, fraction: 2, '%': 1, C: 1, F: 1, 'g/dL': 1, 'g/L': 0 };
+
   it(`a value written in the other unit and back is the number the note wrote (${ACTION_RUNS} generated notes)`, () => {
     fc.assert(fc.property(notes, (text) => {
       const result = checkNote(text);
       for (const s of stated(result)) {
-        if (!s.item.value || s.item.value.kind !== 'number' || s.item.implied === 'shorthand') continue;
+        if (!s.item.value || s.item.value.kind !== 'number' || s.item.implied === 'shorthand' || !s.readUnit) continue;
+        const asWritten = s.item.value.text.replace(',', '.');
+        const writtenDecimals = asWritten.includes('.') ? asWritten.length - asWritten.indexOf('.') - 1 : 0;
+        if (writtenDecimals > (USUAL_DECIMALS[s.readUnit] ?? 0)) continue;
         const at = { line: s.line, character: s.item.value.span.start };
         const there = codeActions(result, { start: at, end: at }).find((a) => /^Write \S+ (in|as) /.test(a.title));
         if (!there) continue;

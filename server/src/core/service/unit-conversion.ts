@@ -11,7 +11,7 @@ import type { NoteResult } from '../check-note';
 import type { StatedValue } from '../analysis/model';
 import { displayUnit } from '../analysis/read-value';
 import { fieldById, type FieldDef } from '../fields/registry';
-import { convert, unitById, unitsForSpelling } from '../fields/units';
+import { convert, unitById, unitsForSpelling, type UnitDef } from '../fields/units';
 import { decimalsFor } from '../present';
 import type { ItemNode, LineNode, SectionLine } from '../syntax/tree';
 import type { TextEdit } from '../types';
@@ -57,13 +57,30 @@ export function numberIn(s: StatedValue, field: FieldDef, to: string): string | 
   const possible = within(s.value, field.hard);
   if (written && from && from.id !== target.id) {
     for (let decimals = usual; decimals <= usual + 2; decimals++) {
-      const text = write(decimals);
-      const back = convert(Number(text), target, from);
-      const read = convert(Number(text), target, canonical);
-      if (back !== null && formatNumber(back, written.decimals) === formatNumber(written.value, written.decimals) && (!possible || (read !== null && within(read, field.hard)))) return text;
+      // The nearest number, or where that is past a bound the value is within, the one on its side.
+      for (const text of [write(decimals), towardBound(v, decimals, target, canonical, field)]) {
+        if (text === null) continue;
+        const back = convert(Number(text), target, from);
+        const read = convert(Number(text), target, canonical);
+        if (back !== null && formatNumber(back, written.decimals) === formatNumber(written.value, written.decimals) && (!possible || (read !== null && within(read, field.hard)))) return text;
+      }
     }
   }
   return write(usual);
+}
+
+/**
+ * `v` (in `to`) rounded with `decimals` toward the inside of the field's bounds where rounding to
+ * the nearest would cross one (PaO2 10 mmHg, its least, is 1.34 kPa rather than 1.3, 9.75 mmHg).
+ */
+function towardBound(v: number, decimals: number, to: UnitDef, canonical: UnitDef, field: FieldDef): string | null {
+  const factor = 10 ** decimals;
+  const nearest = Math.round(v * factor) / factor;
+  const read = convert(nearest, to, canonical);
+  if (read === null || !field.hard) return null;
+  if (field.hard.min !== undefined && read < field.hard.min) return formatNumber(Math.ceil(v * factor) / factor, decimals);
+  if (field.hard.max !== undefined && read > field.hard.max) return formatNumber(Math.floor(v * factor) / factor, decimals);
+  return null;
 }
 
 /** The number of a stated value as the note wrote it, with its decimals (a decimal comma read as a point). */
