@@ -203,11 +203,25 @@ describe('commas and slashes repeated', () => {
 });
 
 describe('numbers too large for a time', () => {
-  // Defect in the parser's offsets (server/src/core/syntax/parser.ts, offsetMinutes): an offset
-  // whose digits overflow a double reads as Infinity minutes, with no finding, where a day of as
-  // many digits is reported (PN104). The timeline then holds day and minutes Infinity.
-  it.fails('an offset of 400 digits gives no infinite time', () => {
+  // A day or an offset beyond day 100000 (about 270 years) is reported (PN104) and gives no time:
+  // 400 digits once read as Infinity minutes with no finding, and 20 digits as a day that lost
+  // its precision (day 100000000000000000000).
+  const pn104 = (text: string) => checkNote(text).findings.filter((f) => f.code === 'PN104');
+
+  it('an offset of 400 digits gives no infinite time, and is reported', () => {
     const text = `@ +${'9'.repeat(400)}h\nvitals hr 80\n@ +1h\nvitals hr 81`;
     expectSane(text, checkNote(text));
+    expect(pn104(text).map((f) => f.message)).toEqual([`\`+${'9'.repeat(400)}h\` is longer than a note can span (100000 days).`]);
+    expect(checkNote(text).analysis.timeline.timepoints[0]!.time.minutes).toBeNull();
+  });
+
+  it('a day beyond day 100000 is reported, with its clock kept out of the label; day 100000 and an offset of 100000 days are read', () => {
+    const text = '@ day 99999999999999999999 08:00  first look\nvitals hr 80';
+    expect(pn104(text).map((f) => f.message)).toEqual(['`day 99999999999999999999` is beyond the last day a note can name (day 100000).']);
+    expect(checkNote(text).analysis.timeline.timepoints[0]!.label).toBe('first look');
+    expect(pn104('@ day 100000 08:00\nvitals hr 80')).toEqual([]);
+    expect(pn104('@ +100000d\nvitals hr 80')).toEqual([]);
+    expect(pn104('@ +100001d\nvitals hr 80')).toHaveLength(1);
+    expect(pn104('@ +99999999999999999999h90\nvitals hr 80').map((f) => f.message)).toEqual(['`+99999999999999999999h90` is longer than a note can span (100000 days).']);
   });
 });

@@ -309,6 +309,9 @@ function parseTimepoint(body: string, chunks: Word[], line: number, text: string
     if (!c1 || !dayNum || dayNum.length !== c1.text.length || !Number.isInteger(dayNum.value) || dayNum.value < 0 || c1.text.startsWith('-') || c1.text.startsWith('+')) {
       issues.push({ check: 'bad-time', span: c1 ? c1.span : c0.span, message: 'After `day` write the day number, e.g. `@ day 2 08:00`.', fixes: [] });
       used = c1 ? 2 : 1;
+    } else if (dayNum.value > MAX_DAY) {
+      issues.push({ check: 'bad-time', span: c1.span, message: `\`day ${c1.text}\` is beyond the last day a note can name (day ${MAX_DAY}).`, fixes: [] });
+      used = rest[2] && readClock(rest[2].text) !== null ? 3 : 2;
     } else {
       const c2 = rest[2];
       const clock = c2 ? readClock(c2.text) : null;
@@ -332,7 +335,10 @@ function parseTimepoint(body: string, chunks: Word[], line: number, text: string
     const minutes = readOffset(c0.text);
     used = 1;
     const over = minutes === null ? offsetOverflow(c0.text) : null;
-    if (over !== null) {
+    if ((minutes ?? over ?? 0) > MAX_OFFSET_MINUTES) {
+      // Beyond any note's span, and beyond what a number keeps exactly: never a time (or a fix) built from it.
+      issues.push({ check: 'bad-time', span: c0.span, message: `\`${c0.text}\` is longer than a note can span (${MAX_DAY} days).`, fixes: [] });
+    } else if (over !== null) {
       // `+2h90`: read as 3h30 it would move every later timepoint; what was meant is the writer's to say.
       const meant = offsetText(over);
       issues.push({ check: 'bad-time', span: c0.span, message: `\`${c0.text}\` runs over: hours after days go from 0 to 23 and minutes after hours or days from 0 to 59. Did you mean \`${meant}\`?`, fixes: [{ title: `Write \`${meant}\``, edits: [{ span: c0.span, newText: meant }] }] });
@@ -483,6 +489,10 @@ export function readOffset(text: string): number | null {
 function offsetOverflow(text: string): number | null {
   return offsetMinutes(text, true) === null ? offsetMinutes(text, false) : null;
 }
+
+/** The last day a note can name (`@ day 100000`), and the longest offset: about 270 years, far beyond any note, and kept exactly by a number. */
+const MAX_DAY = 100_000;
+const MAX_OFFSET_MINUTES = MAX_DAY * 1440;
 
 function offsetMinutes(text: string, withinLarger: boolean): number | null {
   if (!text.startsWith('+') || text.length < 2) return null;
