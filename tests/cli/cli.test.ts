@@ -169,6 +169,13 @@ describe('pneumark show', async () => {
     expect(withheld.map((n) => n.id)).toEqual(expect.arrayContaining(['hco3_expected_acute', 'hco3_expected_chronic']));
   });
 
+  it('tells a written label from the name given to a timepoint without one (writtenLabel)', async () => {
+    const out = io('@ day 1 08:00  first look\nvitals hr 80\n@ +5m\nvitals hr 82\n');
+    await run(['check', '--format', 'json', '-'], out);
+    const tps = (JSON.parse(out.out()) as { files: { timepoints: { label: string; writtenLabel: string | null }[] }[] }).files[0]!.timepoints;
+    expect(tps.map((t) => [t.label, t.writtenLabel])).toEqual([['first look', 'first look'], ['+5m', null]]);
+  });
+
   it('uses colour on a terminal unless NO_COLOR is set', async () => {
     const tty = io('', {});
     tty.stdout.isTTY = true;

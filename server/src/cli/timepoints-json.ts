@@ -31,13 +31,19 @@ export interface JsonOrigin {
 }
 
 export function timepointsJson(result: NoteResult): unknown[] {
-  return result.analysis.timeline.timepoints.map((tp) => timepointJson(tp, result.analysis.derivation(tp.index)));
+  const lines = result.analysis.tree.lines;
+  return result.analysis.timeline.timepoints.map((tp) => {
+    const node = tp.line === null ? undefined : lines[tp.line];
+    return timepointJson(tp, result.analysis.derivation(tp.index), node?.kind === 'timepoint' ? node.label?.text ?? null : null);
+  });
 }
 
-function timepointJson(tp: Timepoint, derivation: TimepointDerivation): unknown {
+/** `writtenLabel`: the label as the `@` line writes it, null when it has none (`label` then names the timepoint by its time, or `start`). */
+function timepointJson(tp: Timepoint, derivation: TimepointDerivation, writtenLabel: string | null): unknown {
   return {
     index: tp.index,
     label: tp.label,
+    writtenLabel,
     line: tp.line === null ? null : tp.line + 1,
     day: tp.time.day,
     minutes: tp.time.minutes,
