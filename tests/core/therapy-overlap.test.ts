@@ -4,6 +4,7 @@
 // and this check says so instead of leaving the writer asked for an FiO2 they wrote.
 import { describe, expect, it } from 'vitest';
 import { checkNote } from '../../server/src/core';
+import { hoverAt } from '../../server/src/core/service/hover';
 
 const pn311 = (text: string) => checkNote(text).findings.filter((f) => f.code === 'PN311');
 
@@ -52,5 +53,21 @@ describe('an oxygen line and a vent line at one timepoint (PN311)', () => {
 
   it('covers lines before the first @ (an implicit first timepoint)', () => {
     expect(pn311('oxygen mask, fio2 0.5\nvent mode VC, peep 5\n@ 09:00\nvitals hr 80').map((x) => x.range.start.line)).toEqual([0]);
+  });
+});
+
+describe('hover on a setting of a line PN311 reports', () => {
+  it('says the value is not in force nor carried, naming the line that ends it; a value in force says nothing of the kind', () => {
+    const text = '@ 08:00\noxygen mask, fio2 0.5\nvent mode VC, vt 450 mL, rate 14, peep 5';
+    const r = checkNote(text);
+    const ended = hoverAt(r, { line: 1, character: 19 })?.markdown ?? '';
+    expect(ended).toContain('The `vent` line below it (line 3) ends this `oxygen` line at the same timepoint, so this value is not in force here nor carried (PN311).');
+    const inForce = hoverAt(r, { line: 2, character: 37 })?.markdown ?? '';
+    expect(inForce).toContain('Stated on line 3');
+    expect(inForce).not.toContain('PN311');
+    // A change at a timepoint of its own ends nothing at the first.
+    const apart = hoverAt(checkNote('@ 08:00\noxygen mask, fio2 0.5\n@ 08:05\nvent mode VC, peep 5'), { line: 1, character: 19 })?.markdown ?? '';
+    expect(apart).toContain('Stated on line 2');
+    expect(apart).not.toContain('PN311');
   });
 });

@@ -11,7 +11,7 @@ import type { StatedValue, Timepoint } from '../analysis/model';
 import { displayUnit } from '../analysis/read-value';
 import type { DerivedValue, TimepointDerivation } from '../derive/model';
 import { derivedDef } from '../derive/registry';
-import { fieldFor, fieldsInSection, type FieldDef } from '../fields/registry';
+import { fieldById, fieldFor, fieldsInSection, type FieldDef } from '../fields/registry';
 import { sectionById, type SectionId } from '../fields/sections';
 import { describeInput, formatAlternative, formatStated, statedInKpa } from '../present';
 import type { SectionLine, TimepointLine } from '../syntax/tree';
@@ -160,7 +160,19 @@ function originText(result: NoteResult, s: StatedValue): string {
   const replaced = inForce && inForce.stated !== s && inForce.stated.section === s.section && inForce.origin.kind === 'here'
     ? ` A later value at this timepoint replaces it (line ${inForce.stated.line + 1}).`
     : '';
-  return `Stated on line ${s.line + 1}, at timepoint ${timepointName(tp)}.${replaced}`;
+  return `Stated on line ${s.line + 1}, at timepoint ${timepointName(tp)}.${replaced}${endedText(tp, s)}`;
+}
+
+/**
+ * A setting of an oxygen or vent line that a later line of the other therapy at the same
+ * timepoint ends (PN311): it is neither in force there nor carried.
+ */
+function endedText(tp: Timepoint, s: StatedValue): string {
+  if ((s.section !== 'oxygen' && s.section !== 'vent') || fieldById(s.fieldId)?.reading === true) return '';
+  const other = s.section === 'oxygen' ? 'vent' : 'oxygen';
+  let ender = -1;
+  for (const t of tp.stated) if (t.section === other && t.line > s.line) ender = Math.max(ender, t.line);
+  return ender < 0 ? '' : ` The ${code(other)} line below it (line ${ender + 1}) ends this ${code(s.section)} line at the same timepoint, so this value is not in force here nor carried (PN311).`;
 }
 
 function usableText(s: StatedValue, field: FieldDef): string | null {
