@@ -25,6 +25,8 @@ export interface LspClient {
   readonly published: PublishDiagnosticsParams[];
   /** Every `pneumark/analysed` notification received, in order. */
   readonly analysed: AnalysedParams[];
+  /** Every capability the server registered (`client/registerCapability`), in order. */
+  readonly registrations: readonly { method: string; registerOptions?: unknown }[];
   /** How many times the server asked the client to refresh its inlay hints. */
   readonly hintRefreshes: () => number;
   /** Resolves once the server has asked for a refresh of inlay hints more than `after` times in all. */
@@ -86,7 +88,11 @@ export async function startClient(settings: Record<string, unknown> = {}, option
     }
     return params.items.map(() => client.settings);
   });
-  connection.onRequest('client/registerCapability', () => null);
+  const registrations: { method: string; registerOptions?: unknown }[] = [];
+  connection.onRequest('client/registerCapability', (p: { registrations: { method: string; registerOptions?: unknown }[] }) => {
+    registrations.push(...p.registrations);
+    return null;
+  });
   let refreshes = 0;
   const refreshWaiters: { after: number; resolve: () => void }[] = [];
   connection.onRequest('workspace/inlayHint/refresh', () => {
@@ -138,6 +144,7 @@ export async function startClient(settings: Record<string, unknown> = {}, option
       return known ? Promise.resolve(known) : new Promise<AnalysedParams>((resolve) => analysedWaiters.push({ uri, resolve }));
     },
     hintRefreshes: () => refreshes,
+    registrations,
     hintRefresh(after: number, timeoutMs = 15000) {
       if (refreshes > after) return Promise.resolve();
       return new Promise<void>((resolve, reject) => {

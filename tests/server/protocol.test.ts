@@ -215,6 +215,10 @@ describe('settings', () => {
     client.settings = {};
   });
 
+  it('asks to hear of changes to Pneumark\'s own settings only (section pneumark)', async () => {
+    await expect.poll(() => client.registrations.find((r) => r.method === 'workspace/didChangeConfiguration'), { timeout: 5000 }).toEqual({ id: expect.any(String) as unknown, method: 'workspace/didChangeConfiguration', registerOptions: { section: 'pneumark' } });
+  });
+
   it('ignores settings of the wrong shape and keeps going with defaults', async () => {
     client.settings = { gasUnit: 42, hints: 'all', debounceMs: -1 };
     await client.connection.sendNotification('workspace/didChangeConfiguration', { settings: null });

@@ -185,7 +185,8 @@ export function startServer(connection: Connection, collector: IdleCollector = n
   });
 
   connection.onInitialized(() => {
-    if (canPullConfiguration) void connection.client.register(DidChangeConfigurationNotification.type, undefined).catch(() => undefined);
+    // Only changes of Pneumark's own settings: a change of any other setting of the editor need not reach us.
+    if (canPullConfiguration) void connection.client.register(DidChangeConfigurationNotification.type, { section: 'pneumark' }).catch(() => undefined);
   });
 
   /** The editor's settings for a note: asked for it, else pushed by the client, else the defaults. */
