@@ -11,6 +11,7 @@ import { convert, unitById, type UnitDef } from '../fields/units';
 import { toRange } from '../syntax/tree';
 import { formatAgainst } from '../util/format';
 import { defineCheck, type CheckContext, type CheckDef } from './check';
+import type { Fix } from '../types';
 
 const OWN_CHECKS = new Set(['fio2']);
 const SATURATIONS = new Set(['spo2', 'sao2', 'svo2']);
@@ -86,20 +87,46 @@ export const impossibleValue = defineCheck({
   doc: {
     fires: 'A value lies outside the hard bounds of its field: physically or physiologically impossible. The value is not used in any calculation.',
     example: 'abg ph 8.4',
-    fix: 'Check the transcription and the unit. The bounds of each field and their sources are listed in grammar/README.md.',
+    fix: 'Check the transcription and the unit. Where the number is ordinary in the field\'s other unit (`temp 98.6 C`, `pco2 56 kPa`), a quick fix writes that unit. The bounds of each field and their sources are listed in grammar/README.md.',
   },
   source: 'field registry bounds; each field names its source (mostly common practice, no source)',
-  ...valueCheck((ctx, stated) => {
+  ...valueCheck((ctx, stated, barometricMmhg) => {
     const field = stated.item.field;
     if (!field?.hard || OWN_CHECKS.has(field.id) || stated.readUnit === null || stated.unitDoubt) return;
     if (SATURATIONS.has(field.id) && noneNegative(stated)) return;
     if (!outOfBounds(stated, field.hard)) return;
+    const fix = otherUnitFix(field, stated, barometricMmhg);
     ctx.report({
       range: toRange(stated.line, stated.item.value?.span ?? stated.item.span),
-      message: `${asWritten(field, stated)} is impossible (expected ${describe(field.hard, field, stated)}); it is not used in calculations.`,
+      message: `${asWritten(field, stated)} is impossible (expected ${describe(field.hard, field, stated)}); it is not used in calculations.${fix ? ` In ${fix.unit} it would be ordinary.` : ''}`,
+      ...(fix ? { fixes: [fix.fix] } : {}),
     });
   }),
 });
+
+/**
+ * For a number written with a unit that makes it impossible (`temp 98.6 C`, `pco2 56 kPa`): the
+ * field's other unit in which the same number is ordinary (within the hard and usual bounds), and
+ * a fix that writes that unit instead. Null when there is none, or more than one (the writer must
+ * choose), or the value is a pair or had no unit written (PN204 covers bare numbers).
+ */
+function otherUnitFix(field: FieldDef, s: StatedValue, barometricMmhg: number | null): { unit: string; fix: Fix } | null {
+  const unitToken = s.item.unit;
+  const written = s.item.number;
+  const canonical = unitById(field.unit ?? '');
+  if (!unitToken || written === null || s.unitImplied || !canonical || !field.units) return null;
+  const soft = softBoundsAt(field, barometricMmhg);
+  const fitting: UnitDef[] = [];
+  for (const id of field.units) {
+    const unit = unitById(id);
+    if (!unit || id === s.readUnit) continue;
+    const value = convert(written, unit, canonical);
+    if (value !== null && within(value, field.hard) && within(value, soft)) fitting.push(unit);
+  }
+  if (fitting.length !== 1) return null;
+  const unit = displayUnit(fitting[0]!.id);
+  return { unit, fix: { title: `Write ${unit} instead of ${unitToken.text}`, edits: [{ range: toRange(s.line, unitToken.span), newText: unit }] } };
+}
 
 export const unusualValue = defineCheck({
   code: 'PN302',

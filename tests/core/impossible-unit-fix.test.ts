@@ -1,0 +1,33 @@
+// PN301 on a number whose written unit makes it impossible, while the field's other unit makes it
+// ordinary: the message says so and a fix writes that unit. The conversions are the units'
+// definitions (°F = °C × 9/5 + 32; 1 kPa = 7.50062 mmHg, cross-checked with UCUM elsewhere).
+import { describe, expect, it } from 'vitest';
+import { checkNote } from '../../server/src/core';
+import { applyEdits } from '../../server/src/core/service/text-edits';
+
+const pn301 = (text: string) => checkNote(text).findings.filter((f) => f.code === 'PN301');
+
+describe('an impossible value that is ordinary in the field\'s other unit (PN301)', () => {
+  it('offers to write the other unit, and the fixed note has no PN301', () => {
+    const text = '@ 08:00\nvitals temp 98.6 C';
+    const [f] = pn301(text);
+    expect(f?.message).toBe('Temperature 98.6 C is impossible (expected 13.0 C to 47.0 C); it is not used in calculations. In F it would be ordinary.');
+    expect(f?.fixes.map((x) => x.title)).toEqual(['Write F instead of C']);
+    const fixed = applyEdits(text, f!.fixes[0]!.edits);
+    expect(fixed).toBe('@ 08:00\nvitals temp 98.6 F');
+    // 98.6 °F = 37.0 °C.
+    expect(pn301(fixed)).toEqual([]);
+    expect(checkNote(fixed).analysis.timeline.timepoints[0]!.values.get('temp')?.stated.value).toBeCloseTo(37, 6);
+  });
+
+  it('works for gas pressures written in the wrong unit', () => {
+    // 56 kPa = 420 mmHg, above the 53 kPa hard maximum; 56 mmHg is an ordinary PaCO2.
+    expect(pn301('@ 08:00\nabg pco2 56 kPa')[0]?.fixes.map((x) => x.title)).toEqual(['Write mmHg instead of kPa']);
+  });
+
+  it('offers nothing for a value impossible in every unit, a bare number (PN204 covers it), or a pair', () => {
+    expect(pn301('@ 08:00\nvitals temp 500 C')[0]?.fixes).toEqual([]);
+    expect(pn301('@ 08:00\nvitals hr 400')[0]?.fixes).toEqual([]);
+    expect(pn301('@ 08:00\nvitals hr 400 /min')[0]?.fixes).toEqual([]);
+  });
+});
