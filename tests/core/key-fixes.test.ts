@@ -42,3 +42,24 @@ describe('did-you-mean fixes for unknown keys', () => {
     expect(fixes[0]?.preferred.every((p) => !p)).toBe(true);
   });
 });
+
+describe('a line that starts with a key instead of a section (PN101)', () => {
+  const fixTitles = (text: string) => checkNote(text).findings.filter((f) => f.code === 'PN101').flatMap((f) => f.fixes.map((x) => x.title));
+
+  it('offers the section that owns the key when the line reads cleanly under it', () => {
+    expect(fixTitles('@ 08:00\nhr 118, rr 20')).toEqual(['Start the line with `vitals`']);
+    expect(fixTitles('@ 08:00\npco2 40')).toEqual(['Start the line with `abg`', 'Start the line with `vbg`']);
+  });
+
+  it('offers no section that would leave a key without its value (a fix that trades one problem for another)', () => {
+    expect(fixTitles('@ 08:00\nlac')).toEqual([]);
+    expect(fixTitles('@ 08:00\nhr')).toEqual([]);
+  });
+
+  it('reads the rest of the note as before (the trial reading does not disturb the lines after it)', () => {
+    const text = '@ 08:00\nlac\nvitals hr 80, rr 18\nhr 90';
+    const r = checkNote(text);
+    expect(r.analysis.timeline.timepoints[0]!.values.get('rr')?.stated.value).toBe(18);
+    expect(r.findings.map((f) => [f.code, f.range.start.line])).toEqual([['PN101', 1], ['PN101', 3]]);
+  });
+});

@@ -152,8 +152,10 @@ function parseLineUnsafe(text: string, line: number): LineNode {
     const restStart = chunks[1]?.start;
     const restText = restStart === undefined ? '' : body.slice(restStart).trimEnd();
     const rest: Token | null = restStart === undefined ? null : token(restText, restStart, restStart + restText.length);
-    const issues = [unknownSectionIssue(first)];
-    strayCommas(body, chunks, false, false, issues);
+    const strays: SyntaxIssue[] = [];
+    strayCommas(body, chunks, false, false, strays);
+    // Last: it may read the line again under a section, which reuses the lexer's words (`chunks`).
+    const issues = [unknownSectionIssue(sectionToken, body, line), ...strays];
     return { kind: 'unknown', line, text, comment, first: sectionToken, rest, issues };
   }
   if (section.id === 'note') {
@@ -178,19 +180,21 @@ function parseLineUnsafe(text: string, line: number): LineNode {
   return { kind: 'section', line, text, comment, section: section.id, sectionToken, items, prose: null, issues: issues.length === 0 ? NONE : issues };
 }
 
-function unknownSectionIssue(first: Word): SyntaxIssue {
+function unknownSectionIssue(first: Token, body: string, line: number): SyntaxIssue {
   const word = first.text.toLowerCase();
   const fixes: LineFix[] = closest(word, SECTIONS.map((s) => s.id)).map((s) => ({
     title: `Change to \`${s}\``,
     edits: [{ span: first.span, newText: s }],
   }));
-  // A key written without its section, e.g. `hr 118`: offer the section that owns the key.
+  // A key written without its section, e.g. `hr 118`: offer the section that owns the key, when
+  // the line reads cleanly under it (not `lac` alone, which would leave a key without a value).
   const owners = new Set<SectionId>();
   for (const id of ['vitals', 'abg', 'vbg', 'labs', 'vent', 'oxygen', 'patient', 'place'] as const) {
     if (fieldFor(id, word)) owners.add(id);
   }
   for (const owner of owners) {
-    fixes.push({ title: `Start the line with \`${owner}\``, edits: [{ span: { start: first.start, end: first.start }, newText: `${owner} ` }] });
+    if (!readsUnder(owner, body, first.span.start, line)) continue;
+    fixes.push({ title: `Start the line with \`${owner}\``, edits: [{ span: { start: first.span.start, end: first.span.start }, newText: `${owner} ` }] });
   }
   const hint = fixes.length > 0 ? ` Did you mean ${fixes.map((f) => f.title.replace(/^(Change to|Start the line with) /, '')).join(' or ')}?` : '';
   return {
@@ -211,6 +215,17 @@ type StrayCommaPlace = 'alone' | 'start' | 'after-first' | 'doubled';
  * after another with no word between them (between two words or after the last). A single
  * comma after the last word is a separator the grammar allows, and is kept.
  */
+/**
+ * Whether `body` with `section ` put before its first word reads without a problem: no syntax
+ * issue, and every item a known key with a value of its kind (a number or pair for a number
+ * field, a word for a word field). Used for fixes only, on lines that start with no section.
+ */
+function readsUnder(section: SectionId, body: string, at: number, line: number): boolean {
+  const node = parseLineUnsafe(`${body.slice(0, at)}${section} ${body.slice(at)}`, line);
+  if (node.kind !== 'section' || node.issues.length > 0 || node.items.length === 0) return false;
+  return node.items.every((item) => item.field !== null && item.valueKind !== null && (item.valueKind === 'word') === (item.field.kind === 'word'));
+}
+
 function strayCommas(body: string, chunks: readonly Word[], afterFirst: boolean, between: boolean, issues: SyntaxIssue[]): void {
   const first = chunks[0]!;
   if (first.afterComma) issues.push(strayCommaIssue(body, 0, first.start, 'start'));
