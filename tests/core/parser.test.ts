@@ -416,6 +416,13 @@ describe('commas that separate nothing', () => {
     expect(line(text).issues[0]?.fixes[0]?.edits).toEqual([{ span: { start: 0, end: 1 }, newText: '' }]);
   });
 
+  it('leaves a blank where the comma was glued to words on both sides, so they stay apart (`vitals,hr` is not `vitalshr`)', () => {
+    expect(line('vitals,hr 80').issues[0]?.fixes[0]?.edits).toEqual([{ span: { start: 6, end: 7 }, newText: ' ' }]);
+    expect(line('patient,7,35').issues.find((i) => i.check === 'stray-text')?.fixes[0]?.edits).toEqual([{ span: { start: 7, end: 8 }, newText: ' ' }]);
+    // With a blank on either side, the comma goes alone.
+    expect(line('vitals ,hr 80').issues[0]?.fixes[0]?.edits).toEqual([{ span: { start: 7, end: 8 }, newText: '' }]);
+  });
+
   it('reports commas after a section word with nothing after them (`patient ,`), which the formatter would otherwise drop', () => {
     expect(reported('patient ,')).toEqual([['information', ',', ['Remove the comma']]]);
     expect(reported('patient ,,')).toEqual([['information', ',,', ['Remove the commas']]]);

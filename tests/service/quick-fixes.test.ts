@@ -120,10 +120,11 @@ describe('quick fixes on generated notes', () => {
 });
 
 describe('a fix that would trade one problem for another', () => {
-  it('is not offered: removing the comma of `patient,7,35` would glue the section word to the number', () => {
+  it('is mended at its source: the comma of `patient,7,35` is replaced by a blank, which keeps the section word apart from the number', () => {
     const { result, range } = noteAt('patient,|7,35');
     expect(result.findings.map((f) => f.code)).toContain('PN105');
-    expect(codeActions(result, range).map((a) => a.title)).not.toContain('Remove the comma');
+    const remove = codeActions(result, range).find((a) => a.title === 'Remove the comma');
+    expect(remove?.edits.map((e) => e.newText)).toEqual([' ']);
     // With a blank after the comma, removing it is safe.
     const spaced = noteAt('patient,| age 70');
     expect(codeActions(spaced.result, spaced.range).map((a) => a.title)).toContain('Remove the comma');

@@ -270,7 +270,9 @@ function strayCommaIssue(body: string, from: number, to: number, place: StrayCom
     : place === 'after-first' ? `${several ? 'Commas' : 'A comma'} right after \`${firstWord}\` ${several ? 'separate' : 'separates'} nothing; ${read}.`
     : `Commas with nothing between them: is a value missing here? The line is read without the extra ${commas}.`;
   const title = place === 'doubled' ? `Remove the extra ${commas}` : `Remove the ${commas}`;
-  const fixes = start === 0 && end === lineLength ? NONE : [{ title, edits: [{ span, newText: '' }], preferred: true }];
+  // Commas glued to a word on both sides (`patient,7`) leave a blank behind, so the two words stay apart.
+  const glued = start > 0 && end < body.length && !isBlank(body.charCodeAt(start - 1)) && !isBlank(body.charCodeAt(end));
+  const fixes = start === 0 && end === lineLength ? NONE : [{ title, edits: [{ span, newText: glued ? ' ' : '' }], preferred: true }];
   return { check: 'stray-text', severity: 'information', span, message, fixes };
 }
 
