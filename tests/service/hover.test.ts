@@ -222,3 +222,14 @@ describe('derivedHover', () => {
     for (const d of derived) expect(derivedHover(d)).not.toMatch(/NaN|Infinity|undefined/);
   });
 });
+
+describe('hover on a value written in a unit other than the canonical one', () => {
+  it('shows the number as written beside the canonical value, for units without a pair of their own', () => {
+    // 5.9 ft = 179.8 cm and 154 lb = 69.9 kg (1 ft = 30.48 cm, 1 lb = 0.45359237 kg: the units' definitions).
+    expect(markdown('patient height 5.|9 ft, weight 154 lb')).toContain('Value: **180 cm** = 5.9 ft');
+    expect(markdown('patient height 5.9 ft, weight 15|4 lb')).toContain('Value: **69.9 kg** = 154 lb');
+    // A value written in the canonical unit keeps the other unit system (there is none for cm).
+    expect(markdown('patient height 18|0 cm')).toMatch(/Value: \*\*180 cm\*\*\n/);
+    expect(markdown('vitals temp 101.|1 F')).toContain('Value: **38.4 C** = 101.1 F');
+  });
+});

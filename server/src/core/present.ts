@@ -151,8 +151,13 @@ export function statedKpaNumber(s: StatedValue): string | null {
 
 /** The value in the other unit system, when the field has one (mmHg ↔ kPa, °C ↔ °F, ...). */
 export function formatAlternative(s: StatedValue): string | null {
-  const alt = ALTERNATIVE[s.unit ?? ''];
+  // The unit the number was written in, when it is not the canonical one (`height 5.9 ft` shows
+  // `180 cm = 5.9 ft`); else the other unit system of the canonical unit.
+  const written = s.readUnit !== null && s.readUnit !== s.unit && !s.unitImplied;
+  const alt = written ? s.readUnit : ALTERNATIVE[s.unit ?? ''];
   if (!alt || s.word !== null || (s.value === null && !s.parts)) return null;
+  // As written: the number the note holds, not one converted back.
+  if (written && s.value !== null && s.item.valueKind === 'number' && s.item.value) return `${s.item.value.text} ${displayUnit(alt)}`;
   const field = fieldById(s.fieldId);
   if (!field?.units?.includes(alt)) return null;
   return formatStated(s, alt);
