@@ -119,3 +119,13 @@ describe('activation', () => {
     expect(extensionSource).toContain('registerWebviewPanelSerializer(TREND_VIEW_TYPE');
   });
 });
+
+describe('pneumark.disabledChecks in the settings editor', () => {
+  it('offers exactly the registry\'s codes and aliases, each described, so a misspelt check is flagged where it is typed', async () => {
+    const { CHECKS } = await import('../../server/src/core/checks/registry');
+    const items = (properties['pneumark.disabledChecks'] as Property & { items: { enum: string[]; enumDescriptions: string[] } }).items;
+    // When a check is added, list its code and alias here in package.json (in registry order), with descriptions.
+    expect(items.enum).toEqual(CHECKS.flatMap((c) => [c.code, c.alias]));
+    expect(items.enumDescriptions).toEqual(CHECKS.flatMap((c) => [c.title, `${c.code}: ${c.title}`]));
+  });
+});
