@@ -63,3 +63,16 @@ describe('a line that starts with a key instead of a section (PN101)', () => {
     expect(r.findings.map((f) => [f.code, f.range.start.line])).toEqual([['PN101', 1], ['PN101', 3]]);
   });
 });
+
+describe('an unknown unit near a spelling Pneumark accepts (PN202)', () => {
+  const unitFixes = (text: string) => checkNote(text).findings.filter((f) => f.code === 'PN202').map((f) => f.fixes.map((x) => x.title));
+
+  it('suggests the accepted spelling it is near, not only the unit\'s own symbol', () => {
+    expect(unitFixes('@ 08:00\nvitals hr 80 bpmm')).toEqual([['Change to bpm']]);
+    expect(unitFixes('@ 08:00\nabg po2 80 mmgh')).toEqual([['Change to mmHg']]);
+  });
+
+  it('suggests each unit once, and nothing far from every spelling', () => {
+    expect(unitFixes('@ 08:00\nvitals hr 80 furlongs')).toEqual([[]]);
+  });
+});

@@ -257,7 +257,23 @@ function safeKeyFix(written: string, known: string): boolean {
 function unknownUnitIssue(item: ItemNode, field: FieldDef, line: number): ReadIssue {
   const unit = item.unit!;
   const allowed = (field.units ?? []).map(displayUnit);
-  const near = closest(unit.text, allowed);
+  // Near any accepted spelling of an allowed unit (`bpmm` → `bpm`), one suggestion per unit, in the spelling found.
+  const spellings: string[] = [];
+  const unitOf = new Map<string, string>();
+  for (const id of field.units ?? []) {
+    for (const spelling of [displayUnit(id), ...(unitById(id)?.aliases ?? [])]) {
+      if (unitOf.has(spelling.toLowerCase())) continue;
+      unitOf.set(spelling.toLowerCase(), id);
+      spellings.push(spelling);
+    }
+  }
+  const seen = new Set<string>();
+  const near = closest(unit.text, spellings, spellings.length).filter((sp) => {
+    const id = unitOf.get(sp.toLowerCase())!;
+    if (seen.has(id)) return false;
+    seen.add(id);
+    return true;
+  }).slice(0, 3);
   return {
     check: 'unknown-unit',
     line,
