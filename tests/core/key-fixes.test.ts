@@ -74,5 +74,7 @@ describe('an unknown unit near a spelling Pneumark accepts (PN202)', () => {
 
   it('suggests each unit once, and nothing far from every spelling', () => {
     expect(unitFixes('@ 08:00\nvitals hr 80 furlongs')).toEqual([[]]);
+    // Two letters from `hPa` (an accepted spelling of mbar) is too far: a plateau of 0.00 hPa was never meant.
+    expect(unitFixes('@ 08:00\nvent plateau 0.00 kpa2, peep 1 cmH2O')).toEqual([[]]);
   });
 });

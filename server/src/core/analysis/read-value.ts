@@ -257,23 +257,15 @@ function safeKeyFix(written: string, known: string): boolean {
 function unknownUnitIssue(item: ItemNode, field: FieldDef, line: number): ReadIssue {
   const unit = item.unit!;
   const allowed = (field.units ?? []).map(displayUnit);
-  // Near any accepted spelling of an allowed unit (`bpmm` → `bpm`), one suggestion per unit, in the spelling found.
-  const spellings: string[] = [];
-  const unitOf = new Map<string, string>();
+  // Near a unit's symbol (within the usual distance), or one letter from another spelling it
+  // accepts (`bpmm` → `bpm`); one suggestion per unit, in the spelling found. Other spellings are
+  // many and short, so a looser match would suggest units nobody meant (`kpa2` → `hPa`).
+  const near: string[] = [...closest(unit.text, allowed)];
   for (const id of field.units ?? []) {
-    for (const spelling of [displayUnit(id), ...(unitById(id)?.aliases ?? [])]) {
-      if (unitOf.has(spelling.toLowerCase())) continue;
-      unitOf.set(spelling.toLowerCase(), id);
-      spellings.push(spelling);
-    }
+    if (near.includes(displayUnit(id))) continue;
+    const alias = unitById(id)?.aliases.find((a) => editDistance(unit.text.toLowerCase(), a.toLowerCase(), 1) === 1);
+    if (alias !== undefined) near.push(alias);
   }
-  const seen = new Set<string>();
-  const near = closest(unit.text, spellings, spellings.length).filter((sp) => {
-    const id = unitOf.get(sp.toLowerCase())!;
-    if (seen.has(id)) return false;
-    seen.add(id);
-    return true;
-  }).slice(0, 3);
   return {
     check: 'unknown-unit',
     line,
