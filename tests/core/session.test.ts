@@ -91,20 +91,20 @@ describe('NoteSession', () => {
     const edited = base.replace('abg       7.33/45/82/23.1', 'abg       7.34/45/82/23.6');
     session.update(edited);
     // The edited timepoint is read again; the three others are kept (the header is no timepoint).
-    expect(session.stats).toEqual({ parsedLines: 1, reusedTimepoints: 3, timepoints: 4 });
+    expect(session.stats).toEqual({ parsedLines: 1, reusedTimepoints: 3, relocatedTimepoints: 0, timepoints: 4 });
   });
 
   it('counts as reused only timepoints, not the lines before the first `@`', () => {
     const session = new NoteSession();
     session.update('patient age 60 y\n@ 08:00\nvitals hr 80\n@ 09:00\nvitals hr 81');
     session.update('patient age 60 y\n@ 08:00\nvitals hr 80\n@ 09:00\nvitals hr 82');
-    expect(session.stats).toEqual({ parsedLines: 1, reusedTimepoints: 1, timepoints: 2 });
+    expect(session.stats).toEqual({ parsedLines: 1, reusedTimepoints: 1, relocatedTimepoints: 0, timepoints: 2 });
     // Measurements before the first `@` make a timepoint of their own (`start`), reused like any
     // other; the timepoints after it are read again when it appears (each is one further on).
     session.update('vitals hr 70\n@ 08:00\nvitals hr 80\n@ 09:00\nvitals hr 82');
-    expect(session.stats).toEqual({ parsedLines: 1, reusedTimepoints: 0, timepoints: 3 });
+    expect(session.stats).toEqual({ parsedLines: 1, reusedTimepoints: 0, relocatedTimepoints: 0, timepoints: 3 });
     session.update('vitals hr 70\n@ 08:00\nvitals hr 80\n@ 09:00\nvitals hr 83');
-    expect(session.stats).toEqual({ parsedLines: 1, reusedTimepoints: 2, timepoints: 3 });
+    expect(session.stats).toEqual({ parsedLines: 1, reusedTimepoints: 2, relocatedTimepoints: 0, timepoints: 3 });
   });
 
   it('recomputes the later timepoints that carry a changed setting, and only those from there on', () => {

@@ -1,15 +1,25 @@
 /**
  * The runner: analyses a note and runs every enabled check over it. Findings come back sorted
  * by position, each with its stable code and documentation anchor.
+ *
+ * Timepoint-scoped findings are a function of the timepoint (its lines, values in force and
+ * derived values) and the settings, so a session keeps them per timepoint object
+ * (`TimepointFindingsCache`). When lines are added or removed before a timepoint, the session
+ * relocates it (see `buildTimelineIncremental`) and moves its findings with `relocateFindings`:
+ * every range (the finding's, its related places', its fixes' edits) through the same
+ * `LineShift`, and the lines their words name (`FiO2 carried from line 12`; messages write line
+ * numbers as `line N`) through the same shift. Findings that cannot be moved so are made again:
+ * one with a range on a changed line, or whose words name a changed line or quote note text that
+ * looks like a line number (see `moveLineNames`).
  */
 import { analyseText, analyseTree, type NoteAnalysis } from './analysis/analyse';
 import type { CheckContext, CheckDef, Report, TimepointContext } from './checks/check';
-import type { Timepoint } from './analysis/model';
+import { moveLineNames, shiftedLine, type LineShift, type Timepoint } from './analysis/model';
 import { internalError } from './checks/internal';
 import { CHECKS, docAnchor } from './checks/registry';
 import { withDefaults, type Settings } from './settings';
 import type { NoteTree } from './syntax/tree';
-import { comparePositions, type Finding } from './types';
+import { comparePositions, type Finding, type Fix, type Range } from './types';
 import { ownString } from './util/strings';
 import { NONE } from './util/lists';
 import { keptFor, SmallStore, type Kept } from './util/small-store';
@@ -116,4 +126,59 @@ function toFinding(check: CheckDef, r: Report): Finding {
     docAnchor: docAnchor(check),
     ...(r.related ? { related: r.related } : {}),
   };
+}
+
+/**
+ * The findings of a timepoint moved with its lines (see the module comment), or null when one of
+ * them cannot be: it has a range on a changed line, or words `moveLineNames` cannot move.
+ */
+export function relocateFindings(findings: readonly Finding[], shift: LineShift): readonly Finding[] | null {
+  if (findings.length === 0) return findings;
+  const out: Finding[] = [];
+  for (const f of findings) {
+    const message = moveLineNames(shift, f.message);
+    const range = moveRange(f.range, shift);
+    if (message === null || !range) return null;
+    let fixes: readonly Fix[] = f.fixes;
+    if (fixes.length > 0) {
+      const moved: Fix[] = [];
+      for (const fix of fixes) {
+        const title = moveLineNames(shift, fix.title);
+        if (title === null) return null;
+        const edits = [];
+        for (const e of fix.edits) {
+          const r = moveRange(e.range, shift);
+          const newText = moveLineNames(shift, e.newText);
+          if (!r || newText === null) return null;
+          edits.push({ ...e, range: r, newText });
+        }
+        moved.push({ ...fix, title, edits });
+      }
+      fixes = moved;
+    }
+    let related: { readonly range: Range; readonly message: string }[] | undefined;
+    if (f.related) {
+      related = [];
+      for (const r of f.related) {
+        const at = moveRange(r.range, shift);
+        const words = moveLineNames(shift, r.message);
+        if (!at || words === null) return null;
+        related.push({ ...r, range: at, message: words });
+      }
+    }
+    out.push({
+      code: f.code, severity: f.severity, message, range, fixes, docAnchor: f.docAnchor,
+      ...(related ? { related } : {}),
+    });
+  }
+  return out;
+}
+
+/** A range moved through `shift`; null when it touches a changed line. */
+function moveRange(range: Range, shift: LineShift): Range | null {
+  const start = shiftedLine(shift, range.start.line);
+  const end = shiftedLine(shift, range.end.line);
+  if (start === null || end === null) return null;
+  if (start === range.start.line && end === range.end.line) return range;
+  return { start: { line: start, character: range.start.character }, end: { line: end, character: range.end.character } };
 }

@@ -7,10 +7,18 @@
  *   values and derived values (see `buildTimelineIncremental`).
  * - findings: timepoint-scoped checks keep their findings for a reused timepoint; the few
  *   note-scoped checks run over the whole note each time.
+ * - lines added or removed (Enter, a line deleted, a line pasted): the lines after the changed
+ *   stretch keep their parsed items in copies of their nodes with the new line numbers, and the
+ *   parse hands the timeline the `LineShift` from the old line numbers to the new. A later
+ *   timepoint whose lines and carried inputs are the same once moved is relocated by the
+ *   timeline (a copy with its line numbers moved), and its findings are moved with it
+ *   (`relocateFindings`) instead of being checked again. Lines before the change keep their
+ *   nodes and their timepoints keep their objects, as for an edit within a line.
  */
-import { runChecks, type NoteResult, type TimepointFindingsCache } from './check-note';
+import { relocateFindings, runChecks, type NoteResult, type TimepointFindingsCache } from './check-note';
 import { buildTimelineIncremental, type TimelineCache } from './analysis/timeline';
 import { deriverFor } from './analysis/analyse';
+import type { LineShift } from './analysis/model';
 import { withDefaults, type Settings } from './settings';
 import { firstEol, parseLine, splitLines } from './syntax/parser';
 import type { LineNode, NoteTree } from './syntax/tree';
@@ -19,8 +27,14 @@ import { ownString } from './util/strings';
 export interface SessionStats {
   /** Lines parsed anew by the last update. */
   readonly parsedLines: number;
-  /** Timepoints whose values and derived values were reused. */
+  /** Timepoints kept as they were (their values, derived values and findings reused). */
   readonly reusedTimepoints: number;
+  /**
+   * Timepoints moved with lines added or removed before them: copies of the last run's with their
+   * line numbers moved, and their findings moved with them (neither read nor checked again). The
+   * others (`timepoints - reusedTimepoints - relocatedTimepoints`) were checked again.
+   */
+  readonly relocatedTimepoints: number;
   readonly timepoints: number;
 }
 
@@ -36,7 +50,7 @@ export class NoteSession {
   private lastChange: { readonly old: string; readonly text: string; readonly prefix: number; readonly suffix: number } | null = null;
   /** The last update was a step of `steps` short of the whole note. */
   private partial = false;
-  private statsValue: SessionStats = { parsedLines: 0, reusedTimepoints: 0, timepoints: 0 };
+  private statsValue: SessionStats = { parsedLines: 0, reusedTimepoints: 0, relocatedTimepoints: 0, timepoints: 0 };
 
   constructor(settings: Partial<Settings> = {}) {
     this.settings = ownSettings(settings);
@@ -73,20 +87,36 @@ export class NoteSession {
     this.partial = false;
     if (this.last && text === this.lastText) return this.last;
     try {
-      const { tree, parsed } = this.parse(text);
+      const { tree, parsed, shift } = this.parse(text);
       this.lastChange = null; // it holds the old text
-      const { timeline, cache } = buildTimelineIncremental(tree, this.settings, this.timelineCache);
+      const { timeline, cache, moved } = buildTimelineIncremental(tree, this.settings, this.timelineCache, shift);
       this.timelineCache = cache;
       // A timepoint the timeline reused is the object of the last run, whose findings are kept.
-      // (The cache counts blocks, and the lines before the first `@` are a block too.)
+      // (The cache counts blocks, and the lines before the first `@` are a block too.) A timepoint
+      // it relocated takes the findings of the one it was copied from, moved the same way, unless
+      // they cannot be moved safely (they are then made again by the checks).
       const timepoints = timeline.timepoints;
       let reused = 0;
-      for (let i = 0; i < timepoints.length; i++) if (this.findings.has(timepoints[i]!)) reused++;
+      let relocated = 0;
+      for (let i = 0; i < timepoints.length; i++) {
+        const tp = timepoints[i]!;
+        if (this.findings.has(tp)) {
+          reused++;
+          continue;
+        }
+        const from = shift ? moved.get(tp) : undefined;
+        const known = from ? this.findings.get(from) : undefined;
+        const findings = known && shift ? relocateFindings(known, shift) : null;
+        if (findings) {
+          this.findings.set(tp, findings);
+          relocated++;
+        }
+      }
       // Derived values are computed for the timepoints whose findings are not kept from the last
       // run, and then dropped (see NoteAnalysis.derivation).
       this.last = runChecks({ tree, timeline, derivation: deriverFor(timeline, this.settings) }, this.settings, undefined, this.findings);
       this.lastText = text;
-      this.statsValue = { parsedLines: parsed, reusedTimepoints: reused, timepoints: timepoints.length };
+      this.statsValue = { parsedLines: parsed, reusedTimepoints: reused, relocatedTimepoints: relocated, timepoints: timepoints.length };
       return this.last;
     } catch (error) {
       // The parse may have moved the line starts to `text` already: the next update must not read
@@ -160,8 +190,9 @@ export class NoteSession {
    * line after it moves when lines were added or removed); only the lines in between are split
    * and parsed. The changed stretch is found by comparing the texts from both ends, so an edit
    * costs a few block comparisons of the text plus the changed lines, not a split of the note.
+   * When lines were added or removed, `shift` maps the old line numbers to the new ones.
    */
-  private parse(text: string): { tree: NoteTree; parsed: number } {
+  private parse(text: string): { tree: NoteTree; parsed: number; shift: LineShift | null } {
     const before = this.last?.analysis.tree.lines;
     const old = this.lastText;
     if (!before || old === null || this.starts.length !== before.length) {
@@ -173,7 +204,7 @@ export class NoteSession {
         starts[i] = lines[i]!.offset;
       }
       this.starts = starts;
-      return { tree: { lines: nodes, eol }, parsed: lines.length };
+      return { tree: { lines: nodes, eol }, parsed: lines.length, shift: null };
     }
     const m = before.length;
     const oldStarts = this.starts;
@@ -216,7 +247,9 @@ export class NoteSession {
       starts[i] = oldStarts[m - tail + k]! + delta;
     }
     this.starts = starts;
-    return { tree: { lines: nodes, eol: firstEol(text) }, parsed: middle.length };
+    // Old lines before `head` keep their numbers, old lines from `m - tail` on move by `n - m`.
+    const shift = n === m ? null : { head, end: m - tail, delta: n - m };
+    return { tree: { lines: nodes, eol: firstEol(text) }, parsed: middle.length, shift };
   }
 }
 

@@ -89,3 +89,64 @@ export interface Timepoint {
    */
   readonly shownGasUnit: 'mmHg' | 'kPa';
 }
+
+/**
+ * How the line numbers of a note's previous text map to those of its new text after an edit that
+ * added or removed lines in one stretch: a line before `head` keeps its number, a line from `end`
+ * on moves by `delta` (the count of lines added, negative for lines removed), and a line from
+ * `head` to before `end` was changed (it has no number in the new text).
+ */
+export interface LineShift {
+  readonly head: number;
+  readonly end: number;
+  readonly delta: number;
+}
+
+/** Where a line of the previous text is in the new one; null for a changed line. */
+export function shiftedLine(shift: LineShift, line: number): number | null {
+  return line < shift.head ? line : line >= shift.end ? line + shift.delta : null;
+}
+
+/**
+ * A text (a message, a fix's title) written for the previous text, with the lines it names moved
+ * through `shift`; null when it names a changed line, or when a line number may be part of text
+ * quoted from the note (between backticks, as messages quote it). Messages write line numbers for
+ * people as `line N` (1-based), and nothing else of theirs has that shape: a copy moved so says
+ * what a fresh run writes.
+ */
+export function moveLineNames(shift: LineShift, text: string): string | null {
+  let out = '';
+  let copied = 0;
+  for (let at = 0; at < text.length; at++) {
+    const c = text.charCodeAt(at);
+    if (c !== 0x6c && c !== 0x4c) continue; // l, L
+    if (text.slice(at, at + 4).toLowerCase() !== 'line' || (at > 0 && isWordChar(text.charCodeAt(at - 1)))) continue;
+    // `line N` or `lines N`, with blanks between (read without a regular expression, in one pass).
+    let i = at + 4;
+    if (text[i] === 's' || text[i] === 'S') i++;
+    const blanks = i;
+    while (i < text.length && /\s/.test(text[i]!)) i++;
+    const digits = i;
+    while (i < text.length && text.charCodeAt(i) >= 0x30 && text.charCodeAt(i) <= 0x39) i++;
+    if (blanks === digits || digits === i) continue;
+    const line = Number(text.slice(digits, i)) - 1;
+    if (line < shift.head) continue;
+    const moved = shiftedLine(shift, line);
+    if (moved === null || quoted(text, at)) return null;
+    out += `${text.slice(copied, digits)}${moved + 1}`;
+    copied = i;
+    at = i - 1;
+  }
+  return copied === 0 ? text : out + text.slice(copied);
+}
+
+function isWordChar(c: number): boolean {
+  return (c >= 0x30 && c <= 0x39) || (c >= 0x41 && c <= 0x5a) || (c >= 0x61 && c <= 0x7a) || c === 0x5f;
+}
+
+/** Whether `text[at]` lies between backticks (an odd count of them before it). */
+function quoted(text: string, at: number): boolean {
+  let count = 0;
+  for (let i = text.indexOf('`'); i !== -1 && i < at; i = text.indexOf('`', i + 1)) count++;
+  return count % 2 === 1;
+}

@@ -15,13 +15,26 @@
  * carried state is kept in immutable maps, and a recomputed block reuses the previous block's
  * held values when they are equal, so an edit to one timepoint recomputes only that timepoint
  * and those that depend on what it carries.
+ *
+ * Lines added or removed: the caller passes the `LineShift` from the previous run's lines to
+ * these (the session knows it from the text it compared). A block after the changed stretch is
+ * then the same lines one shift further on; when it is also the same timepoint (same index) with
+ * the same incoming carried state once that state is moved, it is relocated rather than read: a
+ * copy of the previous result with every line number mapped through the shift (its timepoint,
+ * stated values, held values and read issues; the origins of its values in force are built from
+ * those). A line before the change keeps its number, so a value carried from there, or from the
+ * header, keeps its line. One `Relocator` per run maps each previous object to one copy, so the
+ * moved state a block hands on is the very state the next block's moved entry expects, and a
+ * block read again (the changed one) keeps the moved copies of its previous held values when
+ * they are equal. Not relocated, but read again: a block whose label is its line number (`@`
+ * alone: `line 12`), and one whose read issues cannot be moved (see `moveLineNames`).
  */
 import { FIELDS } from '../fields/registry';
 import { SECTIONS, sectionById, type SectionId } from '../fields/sections';
 import type { Settings } from '../settings';
-import type { LineNode, NoteTree, SectionLine, TimepointLine } from '../syntax/tree';
+import type { ItemNode, LineNode, NoteTree, SectionLine, Span, TimepointLine } from '../syntax/tree';
 import { barometricFromAltitude } from './ambient';
-import type { InputValue, Origin, StatedValue, Timepoint, TimepointTime, ValuesInForce } from './model';
+import { moveLineNames, shiftedLine, type InputValue, type LineShift, type Origin, type StatedValue, type Timepoint, type TimepointTime, type ValuesInForce } from './model';
 import type { ReadIssue } from './read-issues';
 import { readItem, type ReadContext } from './read-value';
 import { NONE, pushAll } from '../util/lists';
@@ -81,6 +94,8 @@ export interface TimelineCache {
   readonly blocks: readonly BlockEntry[];
   /** How many blocks the last run took from the cache (for tests and benchmarks). */
   readonly reused: number;
+  /** How many blocks the last run relocated from the cache (moved copies). */
+  readonly relocated: number;
 }
 
 const EMPTY: HeldMap = new Map();
@@ -90,7 +105,18 @@ export function buildTimeline(tree: NoteTree, settings: Settings): Timeline {
   return buildTimelineIncremental(tree, settings, null).timeline;
 }
 
-export function buildTimelineIncremental(tree: NoteTree, settings: Settings, previous: TimelineCache | null): { timeline: Timeline; cache: TimelineCache } {
+/**
+ * The timeline of `tree`, reusing the blocks of `previous` (see the module comment). `shift` maps
+ * the line numbers of the previous run's lines to those of `tree` when lines were added or
+ * removed. `moved` maps each relocated timepoint to the previous run's timepoint it was copied
+ * from (its findings can be moved the same way).
+ */
+export function buildTimelineIncremental(
+  tree: NoteTree,
+  settings: Settings,
+  previous: TimelineCache | null,
+  shift: LineShift | null = null,
+): { timeline: Timeline; cache: TimelineCache; moved: ReadonlyMap<Timepoint, Timepoint> } {
   const usable = previous && previous.settings === settings ? previous.blocks : [];
   const previousLines = previous?.lines ?? [];
   const lines = tree.lines;
@@ -102,8 +128,11 @@ export function buildTimelineIncremental(tree: NoteTree, settings: Settings, pre
   const timepoints: Timepoint[] = [];
   const header: StatedValue[] = [];
   const readIssues: ReadIssue[] = [];
+  const moved = new Map<Timepoint, Timepoint>();
+  const relocator = shift && shift.delta !== 0 && usable.length > 0 ? new Relocator(shift) : null;
   let state = START_STATE;
   let reused = 0;
+  let relocated = 0;
   const reading: Reading = { context: null };
   for (let b = 0; b < starts.length; b++) {
     const start = starts[b]!;
@@ -111,12 +140,21 @@ export function buildTimelineIncremental(tree: NoteTree, settings: Settings, pre
     const index = timepoints.length;
     const endLine = end - 1;
     const old = usable[b];
-    let result: BlockResult;
+    let result: BlockResult | null = null;
     if (old && old.index === index && old.endLine === endLine && old.start === start && sameNodes(previousLines, lines, start, end) && sameState(old.stateIn, state)) {
       result = old.result;
       reused++;
-    } else {
-      result = processBlock(lines, start, end, index, state, settings, tree, old?.result.stateOut ?? null, reading);
+    } else if (old && relocator && old.index === index) {
+      result = relocator.block(old, previousLines, lines, start, end, state);
+      if (result) {
+        relocated++;
+        if (result.timepoint && old.result.timepoint) moved.set(result.timepoint, old.result.timepoint);
+      }
+    }
+    if (!result) {
+      // A block read again keeps its previous held values where they are equal, moved with the lines.
+      const previousOut = old ? (relocator ? relocator.state(old.result.stateOut) : old.result.stateOut) : null;
+      result = processBlock(lines, start, end, index, state, settings, tree, previousOut, reading);
     }
     // A block taken from the cache with the very same incoming state keeps its entry (a big note
     // has thousands of blocks, and an edit changes one).
@@ -126,7 +164,154 @@ export function buildTimelineIncremental(tree: NoteTree, settings: Settings, pre
     for (const issue of result.issues) readIssues.push(issue);
     state = result.stateOut;
   }
-  return { timeline: { timepoints, readIssues, header, headerGasUnit: headerGasUnit(header, settings) }, cache: { settings, lines, blocks: entries, reused } };
+  return { timeline: { timepoints, readIssues, header, headerGasUnit: headerGasUnit(header, settings) }, cache: { settings, lines, blocks: entries, reused, relocated }, moved };
+}
+
+/**
+ * Moves the previous run's objects to the new line numbers (see the module comment): each object
+ * is copied once per run, and one that does not move is itself. Local to one run.
+ */
+class Relocator {
+  private readonly copies = new Map<object, object>();
+
+  constructor(private readonly shift: LineShift) {}
+
+  /**
+   * The previous block `old` relocated to `[start, end)`, or null when it cannot be: its lines
+   * are not all the same lines moved, it is not the same timepoint, or its incoming state moved
+   * is not `state`.
+   */
+  block(old: BlockEntry, before: readonly LineNode[], lines: readonly LineNode[], start: number, end: number, state: CarryState): BlockResult | null {
+    const { end: movedFrom, delta } = this.shift;
+    if (old.start < movedFrom || old.start + delta !== start || old.endLine + delta !== end - 1 || start === 0) return null;
+    if (!sameNodesMoved(before, lines, start, end, delta)) return null;
+    const first = lines[start]!;
+    // `@` alone is labelled with its line number: the label moves, and with it the held values' labels.
+    if (first.kind !== 'timepoint' || (!first.label && !first.time)) return null;
+    if (!sameState(this.state(old.stateIn), state)) return null;
+    const result = old.result;
+    const issues = result.issues.length === 0 ? result.issues : this.issues(result.issues);
+    if (!issues) return null;
+    const tp = result.timepoint;
+    const stateOut = this.state(result.stateOut);
+    const header = result.header.length === 0 ? result.header : result.header.map((s) => this.stated(s));
+    return { timepoint: tp ? this.timepoint(tp, stateOut) : null, header, issues, stateOut };
+  }
+
+  private line(line: number): number {
+    return line < this.shift.end ? line : line + this.shift.delta;
+  }
+
+  private timepoint(tp: Timepoint, state: CarryState): Timepoint {
+    const stated = tp.stated.map((s) => this.stated(s));
+    return {
+      index: tp.index, line: tp.line === null ? null : this.line(tp.line), label: tp.label, startLine: this.line(tp.startLine), endLine: this.line(tp.endLine),
+      time: tp.time, stated, values: new ValuesAt(tp.index, state, stated), barometricMmhg: tp.barometricMmhg, gasUnit: tp.gasUnit, shownGasUnit: tp.shownGasUnit,
+    };
+  }
+
+  /** A stated value moved: a `MovedValue` of the value it was read as, on its new line. */
+  private stated(s: StatedValue): StatedValue {
+    if (s.line < this.shift.end) return s;
+    const known = this.copies.get(s);
+    if (known) return known as StatedValue;
+    const copy = new MovedValue(s instanceof MovedValue ? s.read : s, s.line + this.shift.delta);
+    this.copies.set(s, copy);
+    return copy;
+  }
+
+  private held(h: Held): Held {
+    const stated = this.stated(h.stated);
+    if (stated === h.stated) return h;
+    const known = this.copies.get(h);
+    if (known) return known as Held;
+    const copy: Held = { stated, timepoint: h.timepoint, label: h.label };
+    this.copies.set(h, copy);
+    return copy;
+  }
+
+  private map(m: HeldMap): HeldMap {
+    if (m.size === 0) return m;
+    const known = this.copies.get(m);
+    if (known) return known as HeldMap;
+    let changed = false;
+    const next = new Map<string, Held>();
+    for (const [k, v] of m) {
+      const h = this.held(v);
+      if (h !== v) changed = true;
+      next.set(k, h);
+    }
+    const out = changed ? next : m;
+    this.copies.set(m, out);
+    return out;
+  }
+
+  state(s: CarryState): CarryState {
+    const known = this.copies.get(s);
+    if (known) return known as CarryState;
+    const patient = this.map(s.patient);
+    const place = this.map(s.place);
+    const oxygen = this.map(s.oxygen);
+    const vent = this.map(s.vent);
+    const gasUnit = s.gasUnit ? this.held(s.gasUnit) : null;
+    const same = patient === s.patient && place === s.place && oxygen === s.oxygen && vent === s.vent && gasUnit === s.gasUnit;
+    const out: CarryState = same ? s : { patient, place, oxygen, vent, gasUnit, lastTime: s.lastTime };
+    this.copies.set(s, out);
+    return out;
+  }
+
+  /** Read issues moved, or null when one cannot be (see `moveLineNames`) or points at a changed line. */
+  private issues(issues: readonly ReadIssue[]): readonly ReadIssue[] | null {
+    const out: ReadIssue[] = [];
+    for (const issue of issues) {
+      const message = moveLineNames(this.shift, issue.message);
+      const line = shiftedLine(this.shift, issue.line);
+      if (message === null || line === null) return null;
+      let related: { readonly line: number; readonly span: Span; readonly message: string }[] | undefined;
+      if (issue.related) {
+        related = [];
+        for (const r of issue.related) {
+          const at = shiftedLine(this.shift, r.line);
+          const words = moveLineNames(this.shift, r.message);
+          if (at === null || words === null) return null;
+          related.push({ ...r, line: at, message: words });
+        }
+      }
+      out.push(related ? { ...issue, line, message, related } : { ...issue, line, message });
+    }
+    return out;
+  }
+}
+
+/**
+ * A stated value on another line than the one it was read on (its line moved with lines added or
+ * removed before it): the value as read, with its new line. A value moved again refers to the
+ * value as read, never to another move, so no chain builds up.
+ */
+class MovedValue implements StatedValue {
+  constructor(readonly read: StatedValue, readonly line: number) {}
+  get fieldId(): string { return this.read.fieldId; }
+  get section(): SectionId { return this.read.section; }
+  get item(): ItemNode { return this.read.item; }
+  get value(): number | null { return this.read.value; }
+  get parts(): readonly number[] | null { return this.read.parts; }
+  get word(): string | null { return this.read.word; }
+  get unit(): string | null { return this.read.unit; }
+  get readUnit(): string | null { return this.read.readUnit; }
+  get unitImplied(): boolean { return this.read.unitImplied; }
+  get unitDoubt(): string | null { return this.read.unitDoubt; }
+  get usable(): boolean { return this.read.usable; }
+}
+
+/** Whether the lines `[start, end)` are the previous run's lines `[start - delta, end - delta)` moved. */
+function sameNodesMoved(before: readonly LineNode[], lines: readonly LineNode[], start: number, end: number, delta: number): boolean {
+  if (start - delta < 0 || before.length < end - delta) return false;
+  for (let i = start; i < end; i++) {
+    const x = before[i - delta]!;
+    const y = lines[i]!;
+    if (y.line !== i || x.line !== i - delta || x.text !== y.text) return false;
+  }
+  return true;
 }
 
 /**
