@@ -2,7 +2,8 @@
 // Prints a table of figures; asserts nothing. Run with `npm run bench` (builds first).
 //   full analysis        checkNote on the whole note, fresh each time (dist/core.js): the first
 //                        run alone, then the median of 15 after 3 warm-up runs
-//   incremental update   NoteSession.update after a one-line edit (in process)
+//   incremental update   NoteSession.update after a one-line edit (in process); and after a blank
+//                        line inserted mid-note (Enter), which moves every later timepoint down
 //   edit → diagnostics   a one-line didChange to the publishDiagnostics answering it, over a real
 //                        stdio connection to dist/server.js, with the debounce set to 0: 60 edits
 //                        back to back after 10 that warm up the edit path; and the part of it the
@@ -56,6 +57,19 @@ for (let i = 0; i < 40; i++) {
   inc.push(performance.now() - t);
 }
 row('incremental update (NoteSession)', inc, '—');
+
+// A line inserted in the middle (Enter) and removed again: every later timepoint moves down a line.
+const enter = [];
+for (let i = 0; i < 20; i++) {
+  const k = editLine(i);
+  edited.splice(k + 1, 0, '');
+  const t = performance.now();
+  session.update(edited.join('\n'));
+  enter.push(performance.now() - t);
+  edited.splice(k + 1, 1);
+  session.update(edited.join('\n'));
+}
+row('  a line inserted mid-note (Enter)', enter, '—');
 
 // Over stdio to the bundled server.
 const serverFlags = (process.env.BENCH_SERVER_FLAGS ?? '').split(' ').filter(Boolean);
