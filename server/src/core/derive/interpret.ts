@@ -261,6 +261,8 @@ function mechanism(c: DeriveContext, settings: Settings, line: number | null, ga
  * from line 3`; '' when none was. The line, not the timepoint's label: a label is free text.
  */
 function carriedWords(...terms: readonly (Term | null)[]): string {
+  // Most readings rest on nothing carried: nothing to build then.
+  if (!terms.some((t) => t !== null && t.origin.kind === 'carried')) return '';
   const byOrigin = new Map<string, string[]>();
   for (const t of terms) {
     if (t === null || t.origin.kind !== 'carried') continue;
