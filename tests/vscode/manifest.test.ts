@@ -111,11 +111,12 @@ describe('the contributed commands', () => {
 });
 
 describe('activation', () => {
-  it('activates for a restored trend view, so that a reload with only the trends open does not leave it blank', () => {
+  it('activates on the language alone: the trend view is restored after a reload by the serializer the extension registers then', () => {
+    // An `onWebviewPanel` activation event was tried: with it, VS Code restored the trend view
+    // before the extension had registered its serializer, and the view stayed empty after a
+    // reload (tests/e2e, 'comes back with its note after the window is reloaded').
     const { activationEvents } = JSON.parse(readFileSync('package.json', 'utf8')) as { activationEvents: string[] };
-    const viewType = /export const TREND_VIEW_TYPE = '([^']+)'/.exec(readFileSync('client/src/trend-view.ts', 'utf8'))?.[1];
-    expect(viewType).toBe('pneumark.trends');
-    expect(activationEvents).toEqual(['onLanguage:pneumark', `onWebviewPanel:${viewType}`]);
+    expect(activationEvents).toEqual(['onLanguage:pneumark']);
     expect(extensionSource).toContain('registerWebviewPanelSerializer(TREND_VIEW_TYPE');
   });
 });
