@@ -149,7 +149,11 @@ describe('Pneumark in VS Code', () => {
   });
 
   it('comes back with its note after the window is reloaded', async () => {
-    await wb.page.reload();
+    // Reloaded as a user reloads it (Developer: Reload Window), which saves the workbench's state
+    // first: a reload of the browser page alone may come back with state saved earlier (another note).
+    const loaded = wb.page.waitForEvent('load', { timeout: 60000 });
+    await runCommand(wb.page, 'Developer: Reload Window');
+    await loaded;
     await wb.page.locator('.monaco-workbench').waitFor({ timeout: 60000 });
     await expect.poll(async () => (await texts('#title')).join(), { timeout: 90000 }).toMatch(/icu-ventilated-lung-injury\.pneu/);
     await expect.poll(canvases, { timeout: 60000 }).toBeGreaterThanOrEqual(4);
