@@ -18,23 +18,12 @@ import { NoteSession } from '../../server/src/core/session';
 import type { Settings } from '../../server/src/core/settings';
 import { generateNote } from '../bench/generate.mjs';
 import { sameAsJson, snapshot } from './session-snapshot';
+import { rng } from '../helpers/seeded';
 
 /** Edit sequences per test (each of about `EDITS` edits, every one compared with a fresh analysis). */
 const SESSION_RUNS = Number(process.env.SESSION_RUNS ?? 12);
 const EDITS = Number(process.env.SESSION_EDITS ?? 40);
 const FIRST_SEED = Number(process.env.SESSION_SEED ?? 1);
-
-/** mulberry32: a small seeded generator (public domain), so a failing sequence can be replayed. */
-function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 class Dice {
   constructor(readonly next: () => number) {}

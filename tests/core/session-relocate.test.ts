@@ -11,6 +11,7 @@ import { moveLineNames } from '../../server/src/core/analysis/model';
 import { NoteSession } from '../../server/src/core/session';
 import { generateNote } from '../bench/generate.mjs';
 import { sameAsJson, snapshot } from './session-snapshot';
+import { rng } from '../helpers/seeded';
 
 function expectFresh(session: NoteSession, text: string): void {
   const a = snapshot(session.update(text));
@@ -108,18 +109,6 @@ describe('NoteSession when lines are added or removed', () => {
     expectFresh(s, edited);
   });
 });
-
-/** mulberry32: a small seeded generator (public domain), so a failing sequence can be replayed. */
-function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 const NEW_LINES = [
   '',
