@@ -4,6 +4,7 @@
  * (see the `boundsSource` of pao2 and paco2 in the field registry).
  */
 import type { Bounds, FieldDef } from '../fields/registry';
+import { convert, unitById, type UnitDef } from '../fields/units';
 
 export const LOW_PRESSURE_WAIVER_MMHG = 500;
 const WAIVED_AT_ALTITUDE = new Set(['pao2', 'paco2', 'pvo2', 'pvco2', 'spo2', 'sao2']);
@@ -41,4 +42,22 @@ export function within(value: number, bounds: Bounds | undefined): boolean {
   if (bounds.min !== undefined && value < bounds.min) return false;
   if (bounds.max !== undefined && value > bounds.max) return false;
   return true;
+}
+
+/**
+ * The field's units, other than `except`, in which the number as written (`written`) lies within
+ * every one of `bounds` once read into the field's canonical unit: where a number written or
+ * read in one unit would be ordinary (PN204 for a bare number, PN301's fix for a written unit).
+ */
+export function unitsWithin(field: FieldDef, written: number, except: string | null, ...bounds: readonly (Bounds | undefined)[]): UnitDef[] {
+  const canonical = unitById(field.unit ?? '');
+  const out: UnitDef[] = [];
+  if (!canonical) return out;
+  for (const id of field.units ?? []) {
+    if (id === except) continue;
+    const unit = unitById(id);
+    const value = unit ? convert(written, unit, canonical) : null;
+    if (unit && value !== null && bounds.every((b) => within(value, b))) out.push(unit);
+  }
+  return out;
 }

@@ -9,7 +9,7 @@ import { convert, unitById, unitsForSpelling, type UnitDef } from '../fields/uni
 import type { ItemNode, LineFix, PairValue } from '../syntax/tree';
 import { formatNumber, wordList } from '../util/format';
 import { closest, editDistance } from '../util/suggest';
-import { doubtBoundsAt, softBoundsAt, within, type BoundsContext } from './bounds';
+import { doubtBoundsAt, softBoundsAt, unitsWithin, within, type BoundsContext } from './bounds';
 import type { StatedValue } from './model';
 import type { ReadIssue } from './read-issues';
 
@@ -180,15 +180,8 @@ function otherUnitLikely(field: FieldDef, canonicalValue: number, written: numbe
   if (field.bare === 'fraction-or-percent') return null;
   const plausible = doubtBoundsAt(field, ctx.barometricMmhg) ?? field.hard;
   if (!plausible || within(canonicalValue, plausible)) return null;
-  for (const id of field.units ?? []) {
-    if (id === readUnit.id) continue;
-    const alt = unitById(id);
-    if (!alt) continue;
-    const asAlt = convert(written, alt, canonical);
-    // Ordinary in the other unit: within the soft bounds there (not just plausible).
-    if (asAlt !== null && within(asAlt, softBoundsAt(field, ctx.barometricMmhg) ?? plausible)) return alt;
-  }
-  return null;
+  // Ordinary in the other unit: within the soft bounds there (not just plausible).
+  return unitsWithin(field, written, readUnit.id, softBoundsAt(field, ctx.barometricMmhg) ?? plausible)[0] ?? null;
 }
 
 /**

@@ -3,7 +3,7 @@
  * bounds (field registry). Saturations above 100 % and FiO2 outside 0.21–1.0 have checks
  * of their own and are left to them.
  */
-import { softBoundsAt, within } from '../analysis/bounds';
+import { softBoundsAt, unitsWithin, within } from '../analysis/bounds';
 import type { StatedValue } from '../analysis/model';
 import { fieldById, type Bounds, type FieldDef } from '../fields/registry';
 import { displayUnit } from '../analysis/read-value';
@@ -113,16 +113,8 @@ export const impossibleValue = defineCheck({
 function otherUnitFix(field: FieldDef, s: StatedValue, barometricMmhg: number | null): { unit: string; fix: Fix } | null {
   const unitToken = s.item.unit;
   const written = s.item.number;
-  const canonical = unitById(field.unit ?? '');
-  if (!unitToken || written === null || s.unitImplied || !canonical || !field.units) return null;
-  const soft = softBoundsAt(field, barometricMmhg);
-  const fitting: UnitDef[] = [];
-  for (const id of field.units) {
-    const unit = unitById(id);
-    if (!unit || id === s.readUnit) continue;
-    const value = convert(written, unit, canonical);
-    if (value !== null && within(value, field.hard) && within(value, soft)) fitting.push(unit);
-  }
+  if (!unitToken || written === null || s.unitImplied) return null;
+  const fitting = unitsWithin(field, written, s.readUnit, field.hard, softBoundsAt(field, barometricMmhg));
   if (fitting.length !== 1) return null;
   const unit = displayUnit(fitting[0]!.id);
   return { unit, fix: { title: `Write ${unit} instead of ${unitToken.text}`, edits: [{ range: toRange(s.line, unitToken.span), newText: unit }] } };
