@@ -91,8 +91,8 @@ export class NoteSession {
       this.lastChange = null; // it holds the old text
       const { timeline, cache, moved } = buildTimelineIncremental(tree, this.settings, this.timelineCache, shift);
       this.timelineCache = cache;
-      // A timepoint the timeline reused is the object of the last run, whose findings are kept.
-      // (The cache counts blocks, and the lines before the first `@` are a block too.) A timepoint
+      // A timepoint the timeline reused is the object of the last run, whose findings are kept
+      // (counted here by timepoint: the lines before the first `@` are a block, not one). A timepoint
       // it relocated takes the findings of the one it was copied from, moved the same way, unless
       // they cannot be moved safely (they are then made again by the checks).
       const timepoints = timeline.timepoints;

@@ -92,10 +92,6 @@ export interface TimelineCache {
   /** The line nodes the blocks were read from (the tree of that run). */
   readonly lines: readonly LineNode[];
   readonly blocks: readonly BlockEntry[];
-  /** How many blocks the last run took from the cache (for tests and benchmarks). */
-  readonly reused: number;
-  /** How many blocks the last run relocated from the cache (moved copies). */
-  readonly relocated: number;
 }
 
 const EMPTY: HeldMap = new Map();
@@ -131,8 +127,6 @@ export function buildTimelineIncremental(
   const moved = new Map<Timepoint, Timepoint>();
   const relocator = shift && shift.delta !== 0 && usable.length > 0 ? new Relocator(shift) : null;
   let state = START_STATE;
-  let reused = 0;
-  let relocated = 0;
   const reading: Reading = { context: null };
   for (let b = 0; b < starts.length; b++) {
     const start = starts[b]!;
@@ -143,13 +137,9 @@ export function buildTimelineIncremental(
     let result: BlockResult | null = null;
     if (old && old.index === index && old.endLine === endLine && old.start === start && sameNodes(previousLines, lines, start, end) && sameState(old.stateIn, state)) {
       result = old.result;
-      reused++;
     } else if (old && relocator && old.index === index) {
       result = relocator.block(old, previousLines, lines, start, end, state);
-      if (result) {
-        relocated++;
-        if (result.timepoint && old.result.timepoint) moved.set(result.timepoint, old.result.timepoint);
-      }
+      if (result?.timepoint && old.result.timepoint) moved.set(result.timepoint, old.result.timepoint);
     }
     if (!result) {
       // A block read again keeps its previous held values where they are equal, moved with the lines.
@@ -164,7 +154,7 @@ export function buildTimelineIncremental(
     for (const issue of result.issues) readIssues.push(issue);
     state = result.stateOut;
   }
-  return { timeline: { timepoints, readIssues, header, headerGasUnit: headerGasUnit(header, settings) }, cache: { settings, lines, blocks: entries, reused, relocated }, moved };
+  return { timeline: { timepoints, readIssues, header, headerGasUnit: headerGasUnit(header, settings) }, cache: { settings, lines, blocks: entries }, moved };
 }
 
 /**
