@@ -31,3 +31,27 @@ describe('an impossible value that is ordinary in the field\'s other unit (PN301
     expect(pn301('@ 08:00\nvitals hr 400 /min')[0]?.fixes).toEqual([]);
   });
 });
+
+describe('a unit the field never takes (PN203): the fixes offer only units the number is possible in', () => {
+  const pn203 = (text: string) => checkNote(text).findings.filter((f) => f.code === 'PN203');
+
+  it('`temp 37 mmHg` is offered C, not F (37 °F is 2.8 °C, below the 13 °C hard minimum)', () => {
+    const text = '@ 08:00\nvitals temp 37 mmHg';
+    const [f] = pn203(text);
+    // The message still names every unit the field takes.
+    expect(f?.message).toBe('Temperature is not measured in mmHg; it takes C or F.');
+    expect(f?.fixes.map((x) => x.title)).toEqual(['Change to C']);
+    const fixed = applyEdits(text, f!.fixes[0]!.edits);
+    expect(checkNote(fixed).findings.map((x) => x.code)).toEqual([]);
+  });
+
+  it('`temp 98.6 mmHg` is offered F; `fio2 45 mmHg` is offered %, not the fraction 45', () => {
+    expect(pn203('@ 08:00\nvitals temp 98.6 mmHg')[0]?.fixes.map((x) => x.title)).toEqual(['Change to F']);
+    expect(pn203('@ 08:00\noxygen fio2 45 mmHg')[0]?.fixes.map((x) => x.title)).toEqual(['Change to %']);
+  });
+
+  it('a number possible in no unit the field takes, or a pair, is offered them all', () => {
+    expect(pn203('@ 08:00\nvitals temp 500 mmHg')[0]?.fixes.map((x) => x.title)).toEqual(['Change to C', 'Change to F']);
+    expect(pn203('@ 08:00\nvitals bp 120/80 L')[0]?.fixes.map((x) => x.title)).toEqual(['Change to mmHg']);
+  });
+});

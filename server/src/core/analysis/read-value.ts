@@ -115,7 +115,7 @@ export function readItem(item: ItemNode, section: SectionId, line: number, ctx: 
     const candidates = unitsForSpelling(item.unitText);
     for (const u of candidates) if (field.units?.includes(u.id)) { readUnit = u; break; }
     if (!readUnit) {
-      issues.push(candidates.length === 0 ? unknownUnitIssue(item, field, line) : unitNotAllowedIssue(item, field, line, candidates));
+      issues.push(candidates.length === 0 ? unknownUnitIssue(item, field, line) : unitNotAllowedIssue(item, field, line, candidates, written));
       return new Stated(section, line, item, null, null, null, null, false, null, false);
     }
   } else {
@@ -268,15 +268,22 @@ function unknownUnitIssue(item: ItemNode, field: FieldDef, line: number): ReadIs
   };
 }
 
-function unitNotAllowedIssue(item: ItemNode, field: FieldDef, line: number, candidates: readonly UnitDef[]): ReadIssue {
+/**
+ * A unit this field is never measured in. The message names every unit it takes; the fixes offer
+ * only those in which the written number is possible (`fio2 45 mmHg` is offered %, not the
+ * fraction 45). A pair, or a number possible in none of them, is offered them all.
+ */
+function unitNotAllowedIssue(item: ItemNode, field: FieldDef, line: number, candidates: readonly UnitDef[], written: number | null): ReadIssue {
   const unit = item.unit!;
   const allowed = (field.units ?? []).map(displayUnit);
+  const possible = written === null ? [] : unitsWithin(field, written, null, field.hard).map((u) => displayUnit(u.id));
+  const offered = possible.length > 0 ? possible : allowed;
   return {
     check: 'unit-not-allowed',
     line,
     span: unit.span,
     message: `${field.label} is not measured in ${candidates[0] ? displayUnit(candidates[0].id) : unit.text}; it takes ${wordList(allowed, 'or')}.`,
-    fixes: allowed.map((u) => ({ title: `Change to ${u}`, edits: [{ span: unit.span, newText: u }] })),
+    fixes: offered.map((u) => ({ title: `Change to ${u}`, edits: [{ span: unit.span, newText: u }] })),
   };
 }
 
