@@ -55,7 +55,7 @@ describe('an invalid pneumark.config.json', () => {
     expect(await run(['check', 'ward/k.pneu'], out)).toBe(2);
     const lines = out.err().trim().split('\n');
     expect(lines).toEqual([
-      'pneumark: pneumark.config.json:3:22: `disabledChecks`: "PN 101" is not the code or alias of a check (see docs/checks.md), so it switches nothing off.',
+      'pneumark: pneumark.config.json:3:22: `disabledChecks`: "PN 101" is not the code or alias of a check (see docs/checks.md), so it switches nothing off. Did you mean PN101 (unknown-section)?',
       'pneumark: pneumark.config.json:3:60: `disabledChecks`: "no-such-check" is not the code or alias of a check (see docs/checks.md), so it switches nothing off.',
     ]);
     // The rest of the file applies: the gas unit is kPa.

@@ -25,6 +25,8 @@ export interface LspClient {
   readonly published: PublishDiagnosticsParams[];
   /** Every `pneumark/analysed` notification received, in order. */
   readonly analysed: AnalysedParams[];
+  /** Every `window/logMessage` and `window/showMessage` received, in order. */
+  readonly messages: readonly ServerMessage[];
   /** Every capability the server registered (`client/registerCapability`), in order. */
   readonly registrations: readonly { method: string; registerOptions?: unknown }[];
   /** How many times the server asked the client to refresh its inlay hints. */
@@ -36,11 +38,20 @@ export interface LspClient {
   change(uri: string, text: string, version: number): void;
   /** Resolves with the first diagnostics for `uri` matching `accept` (already received or future). */
   diagnostics(uri: string, accept?: (p: PublishDiagnosticsParams) => boolean, timeoutMs?: number): Promise<PublishDiagnosticsParams>;
+  /** Resolves with the first message matching `accept` (already received or future). */
+  message(accept: (m: ServerMessage) => boolean, timeoutMs?: number): Promise<ServerMessage>;
   /** Resolves with the first `pneumark/analysed` for `uri` (already received or future). */
   analysedOf(uri: string): Promise<AnalysedParams>;
   /** Resolves once the client has answered a `workspace/configuration` request about `uri`. */
   configured(uri: string): Promise<void>;
   close(): Promise<number | null>;
+}
+
+/** A message for the user: `window/logMessage` (the client's output) or `window/showMessage`; type 1 error, 2 warning, 3 info, 4 log. */
+export interface ServerMessage {
+  readonly method: 'window/logMessage' | 'window/showMessage';
+  readonly type: number;
+  readonly message: string;
 }
 
 export interface ClientOptions {
@@ -68,7 +79,18 @@ export async function startClient(settings: Record<string, unknown> = {}, option
       }
     }
   });
-  connection.onNotification('window/logMessage', () => undefined);
+  const messages: ServerMessage[] = [];
+  const messageWaiters: { accept: (m: ServerMessage) => boolean; resolve: (m: ServerMessage) => void }[] = [];
+  const heard = (method: ServerMessage['method']) => (p: { type: number; message: string }) => {
+    const m: ServerMessage = { method, type: p.type, message: p.message };
+    messages.push(m);
+    for (const w of messageWaiters.filter((x) => x.accept(m))) {
+      messageWaiters.splice(messageWaiters.indexOf(w), 1);
+      w.resolve(m);
+    }
+  };
+  connection.onNotification('window/logMessage', heard('window/logMessage'));
+  connection.onNotification('window/showMessage', heard('window/showMessage'));
   const analysed: AnalysedParams[] = [];
   const analysedWaiters: { uri: string; resolve: (p: AnalysedParams) => void }[] = [];
   connection.onNotification(ANALYSED_NOTIFICATION, (p: AnalysedParams) => {
@@ -137,6 +159,15 @@ export async function startClient(settings: Record<string, unknown> = {}, option
       return new Promise<PublishDiagnosticsParams>((resolve, reject) => {
         const timer = setTimeout(() => reject(new Error(`no diagnostics for ${uri} within ${timeoutMs} ms; stderr: ${client.stderr}`)), timeoutMs);
         waiters.push({ uri, accept, resolve: (p) => { clearTimeout(timer); resolve(p); } });
+      });
+    },
+    messages,
+    message(accept: (m: ServerMessage) => boolean, timeoutMs = 15000) {
+      const known = messages.find(accept);
+      if (known) return Promise.resolve(known);
+      return new Promise<ServerMessage>((resolve, reject) => {
+        const timer = setTimeout(() => reject(new Error(`no such message within ${timeoutMs} ms; messages: ${JSON.stringify(messages)}`)), timeoutMs);
+        messageWaiters.push({ accept, resolve: (m) => { clearTimeout(timer); resolve(m); } });
       });
     },
     analysedOf(uri: string) {

@@ -253,7 +253,7 @@ describe('settings', () => {
     expect(codes(p.diagnostics).filter((c) => c.startsWith('PN2'))).toEqual([]);
     const config = await client.diagnostics(configUri);
     expect(config.diagnostics.map((d) => [d.message, d.range.start])).toEqual([
-      ['pneumark.config.json: `disabledChecks`: "PN 101" is not the code or alias of a check (see docs/checks.md), so it switches nothing off.', { line: 2, character: 21 }],
+      ['pneumark.config.json: `disabledChecks`: "PN 101" is not the code or alias of a check (see docs/checks.md), so it switches nothing off. Did you mean PN101 (unknown-section)?', { line: 2, character: 21 }],
     ]);
   });
 });

@@ -2,7 +2,7 @@
 // JSON stops being valid and what is wrong, in plain words), and the size limit counted in UTF-8 bytes.
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { parseProjectConfig } from '../../server/src/core/config';
+import { parseProjectConfig, unknownCheckNames } from '../../server/src/core/config';
 import { DEFAULT_SETTINGS, settingsSchema } from '../../server/src/core/settings';
 import { exceedsBytes, formattedLines } from '../../server/src/server/server';
 import { DEFAULT_CLIENT_SETTINGS, effectiveSettings, readClientSettings } from '../../server/src/server/settings';
@@ -30,9 +30,34 @@ describe('readClientSettings', () => {
   });
 
   it('takes nothing from the prototype and reports nothing for an empty section', () => {
-    expect(readClientSettings(undefined)).toEqual({ settings: DEFAULT_CLIENT_SETTINGS, problem: null });
+    expect(readClientSettings(undefined)).toEqual({ settings: DEFAULT_CLIENT_SETTINGS, problem: null, unknownChecks: null });
     expect(readClientSettings(Object.create({ gasUnit: 'kPa' })).settings.analysis).toEqual({});
     expect(readClientSettings({ gasUnit: null }).problem).toBeNull();
+  });
+});
+
+describe('names in disabledChecks that are no check', () => {
+  it('are found case-insensitively, each once, with the check they likely meant', () => {
+    expect(unknownCheckNames(['PN302', 'pn302', 'Unusual-Value', 'decimal-comma'])).toEqual([]);
+    expect(unknownCheckNames(['PN320', 'pn320', 'unusal-value', 'PN 101', 'pn-410', '302', 'PN999999', 'zz'])).toEqual([
+      // One edit from two codes (a swap of neighbours counts as one): both are named.
+      { name: 'PN320', likely: ['PN302 (unusual-value)', 'PN310 (flow-on-room-air)'] },
+      { name: 'unusal-value', likely: ['unusual-value (PN302)'] },
+      // The same code written with a space or a hyphen, or without its PN.
+      { name: 'PN 101', likely: ['PN101 (unknown-section)'] },
+      { name: 'pn-410', likely: ['PN410 (oxygenation-reading)'] },
+      { name: '302', likely: ['PN302 (unusual-value)'] },
+      { name: 'PN999999', likely: [] },
+      { name: 'zz', likely: [] },
+    ]);
+  });
+
+  it('are kept in the editor settings (they switch nothing off) and named with what they likely meant', () => {
+    const { settings, problem, unknownChecks } = readClientSettings({ disabledChecks: ['unusal-value', 'PN103'] });
+    expect(settings.analysis.disabledChecks).toEqual(['unusal-value', 'PN103']);
+    expect(problem).toBeNull();
+    expect(unknownChecks).toBe('pneumark.disabledChecks: "unusal-value" is not the code or alias of a check (see docs/checks.md), so it switches nothing off. Did you mean unusual-value (PN302)?');
+    expect(readClientSettings({ disabledChecks: ['PN103', 'unusual-value'] }).unknownChecks).toBeNull();
   });
 });
 

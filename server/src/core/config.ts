@@ -11,6 +11,7 @@ import { HINT_CATEGORIES, type HintCategory } from './service/types';
 import { settingsSchema, type Settings } from './settings';
 import type { Range } from './types';
 import { wordList } from './util/format';
+import { editDistance } from './util/suggest';
 
 export const CONFIG_FILE_NAME = 'pneumark.config.json';
 
@@ -107,6 +108,61 @@ export function parseProjectConfig(file: string): ParsedConfig {
 /** Check codes (lower case) and aliases, as `disabledChecks` matches them (see `runChecks`). */
 const CHECK_NAMES: ReadonlySet<string> = new Set(CHECKS.flatMap((c) => [c.code.toLowerCase(), c.alias]));
 
+/** A name in `disabledChecks` that is no check's code or alias, and the checks it likely meant. */
+export interface UnknownCheckName {
+  readonly name: string;
+  /** The checks it is closest to, as `PN302 (unusual-value)` (or `unusual-value (PN302)` when the alias is what it is near); empty when none is near. */
+  readonly likely: readonly string[];
+}
+
+/**
+ * The names of a `disabledChecks` list that are no check's code or alias (each once, in the
+ * order written), with the checks they likely meant: the same code written with a space, hyphen
+ * or without its `PN` (`PN 302`, `pn-302`, `302`), else the codes and aliases at the fewest edits
+ * (one or two; one for names of three letters or fewer; a swap of two neighbours counts as one:
+ * `PN320` is one edit from both PN302 and PN310), at most three.
+ */
+export function unknownCheckNames(names: readonly string[]): UnknownCheckName[] {
+  const out: UnknownCheckName[] = [];
+  const seen = new Set<string>();
+  for (const name of names) {
+    const lower = name.toLowerCase();
+    if (CHECK_NAMES.has(lower) || seen.has(lower)) continue;
+    seen.add(lower);
+    out.push({ name, likely: likelyChecks(lower) });
+  }
+  return out;
+}
+
+function likelyChecks(lower: string): string[] {
+  const squeezed = lower.replace(/[\s_-]+/g, '');
+  const asCode = /^\d{3}$/.test(squeezed) ? `pn${squeezed}` : squeezed;
+  const same = CHECKS.find((c) => c.code.toLowerCase() === asCode);
+  if (same) return [`${same.code} (${same.alias})`];
+  const limit = lower.length <= 3 ? 1 : 2;
+  let best = limit + 1;
+  let found: string[] = [];
+  for (const c of CHECKS) {
+    const toCode = editDistance(lower, c.code.toLowerCase(), limit);
+    const toAlias = editDistance(lower, c.alias, limit);
+    const d = Math.min(toCode, toAlias);
+    if (d > limit || d > best) continue;
+    const shown = toAlias < toCode ? `${c.alias} (${c.code})` : `${c.code} (${c.alias})`;
+    if (d < best) { best = d; found = [shown]; } else found.push(shown);
+  }
+  return found.slice(0, 3);
+}
+
+/**
+ * What a name in `disabledChecks` that is no check's code or alias does (nothing), and what it
+ * likely meant: `"PN320" is not the code or alias of a check (see docs/checks.md), so it switches
+ * nothing off. Did you mean PN302 (unusual-value) or PN310 (flow-on-room-air)?`
+ */
+export function unknownCheckSentence(unknown: UnknownCheckName): string {
+  const said = `${JSON.stringify(unknown.name)} is not the code or alias of a check (see docs/checks.md), so it switches nothing off.`;
+  return unknown.likely.length > 0 ? `${said} Did you mean ${wordList(unknown.likely, 'or')}?` : said;
+}
+
 /**
  * Names in `disabledChecks` that are no check's code or alias, with where they are written: the
  * runner ignores them, so without a word a typo (`PN 101`) would leave the check on.
@@ -115,16 +171,14 @@ function unknownDisabledChecks(text: string, data: unknown): ConfigProblem[] {
   if (typeof data !== 'object' || data === null || !Object.prototype.hasOwnProperty.call(data, 'disabledChecks')) return [];
   const listed = settingsSchema.shape.disabledChecks.safeParse((data as { disabledChecks?: unknown }).disabledChecks);
   if (!listed.success) return []; // reported by the schema's validation
-  return listed.data
-    .filter((name) => !CHECK_NAMES.has(name.toLowerCase()))
-    .map((name) => {
-      const needle = JSON.stringify(name);
-      const at = text.indexOf(needle);
-      return {
-        message: `${CONFIG_FILE_NAME}: \`disabledChecks\`: ${needle} is not the code or alias of a check (see docs/checks.md), so it switches nothing off.`,
-        range: at < 0 ? WHOLE_FIRST_LINE : rangeOfOffsets(text, at, at + needle.length),
-      };
-    });
+  return unknownCheckNames(listed.data).map((unknown) => {
+    const needle = JSON.stringify(unknown.name);
+    const at = text.indexOf(needle);
+    return {
+      message: `${CONFIG_FILE_NAME}: \`disabledChecks\`: ${unknownCheckSentence(unknown)}`,
+      range: at < 0 ? WHOLE_FIRST_LINE : rangeOfOffsets(text, at, at + needle.length),
+    };
+  });
 }
 
 /** The range of `"key"` in the text (the first occurrence), or the first character. */

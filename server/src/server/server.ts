@@ -194,13 +194,19 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     return clientSettings.get(uri) ?? pushedSettings ?? DEFAULT_CLIENT_SETTINGS;
   }
 
-  /** Reads settings from the client, dropping invalid keys (each problem logged once). */
+  /**
+   * Reads settings from the client, dropping invalid keys; each problem, and each list of names in
+   * `disabledChecks` that are no check's, is logged once (as a warning in the client's output).
+   */
   function readSettings(raw: unknown): ClientSettings {
-    const { settings, problem } = readClientSettings(raw);
-    if (problem && !loggedProblems.has(problem)) {
-      loggedProblems.add(problem);
-      connection.console.warn(`pneumark: settings ignored (${problem}); the other settings apply`);
-    }
+    const { settings, problem, unknownChecks } = readClientSettings(raw);
+    const warnOnce = (message: string) => {
+      if (loggedProblems.has(message)) return;
+      loggedProblems.add(message);
+      connection.console.warn(message);
+    };
+    if (problem) warnOnce(`pneumark: settings ignored (${problem}); the other settings apply`);
+    if (unknownChecks) warnOnce(`pneumark: ${unknownChecks}`);
     return settings;
   }
 

@@ -6,7 +6,7 @@
  * analysis settings, so a team's note conventions are the same in every editor and in CI.
  */
 import { z } from 'zod';
-import { settingProblem, type ParsedConfig } from '../core/config';
+import { settingProblem, unknownCheckNames, unknownCheckSentence, type ParsedConfig } from '../core/config';
 import { HINT_CATEGORIES, type HintCategory } from '../core/service/types';
 import { settingsSchema, withDefaults, type Settings } from '../core/settings';
 
@@ -29,8 +29,11 @@ export const DEFAULT_CLIENT_SETTINGS: ClientSettings = clientSettingsSchema.pars
  * Reads the `pneumark` configuration section. The client contributes flat keys
  * (`pneumark.gasUnit`, `pneumark.hints.mechanics`, ...): they arrive as a nested object. Each key
  * is validated on its own: an invalid one is dropped (and named in `problem`), the others apply.
+ * Names in `disabledChecks` that are no check's code or alias are kept (they switch nothing off,
+ * as in `pneumark.config.json`) and named in `unknownChecks`, with the check each likely meant:
+ * `PN320` or `unusal-value` would otherwise leave a check on that its author believes off.
  */
-export function readClientSettings(raw: unknown): { settings: ClientSettings; problem: string | null } {
+export function readClientSettings(raw: unknown): { settings: ClientSettings; problem: string | null; unknownChecks: string | null } {
   const source = isRecord(raw) ? raw : {};
   const problems: string[] = [];
   const take = <S extends z.ZodType>(key: string, schema: S, value: unknown): z.output<S> | undefined => {
@@ -69,7 +72,12 @@ export function readClientSettings(raw: unknown): { settings: ClientSettings; pr
     ...(debounceMs !== undefined ? { debounceMs } : {}),
     ...(maxNoteSizeKb !== undefined ? { maxNoteSizeKb } : {}),
   };
-  return { settings, problem: problems.length > 0 ? problems.join('; ') : null };
+  const unknown = unknownCheckNames(settings.analysis.disabledChecks ?? []);
+  return {
+    settings,
+    problem: problems.length > 0 ? problems.join('; ') : null,
+    unknownChecks: unknown.length > 0 ? `pneumark.disabledChecks: ${unknown.map(unknownCheckSentence).join(' ')}` : null,
+  };
 }
 
 function isRecord(value: unknown): value is Record<string, unknown> {
