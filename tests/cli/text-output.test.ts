@@ -100,7 +100,8 @@ describe('bidirectional controls', () => {
     // Separators and invisible characters are shown too; the joiners of scripts and emoji are kept.
     expect(visible('\u2028\u2029')).toBe('\\u{2028}\\u{2029}');
     expect(visible('h\u200br \u2060\ufeff')).toBe('h\\u{200B}r \\u{2060}\\u{FEFF}');
-    expect(visible('\u200c\u200d 👩\u200d⚕️')).toBe('\u200c\u200d 👩\u200d⚕️');
+    expect(visible('👩\u200d⚕️ ❤️\u200d🔥 👩🏽\u200d💻')).toBe('👩\u200d⚕️ ❤️\u200d🔥 👩🏽\u200d💻');
+    expect(visible('می\u200cخواهم क्\u200dष')).toBe('می\u200cخواهم क्\u200dष');
     expect(visible('סימן שם · علامة')).toBe('סימן שם · علامة');
     expect(visible('\u001b\u202e')).toBe('\\x1b\\u{202E}');
   });
@@ -124,6 +125,22 @@ describe('bidirectional controls', () => {
     await run(['check', '-'], checked);
     expect(checked.out()).toContain('<stdin>:2:14  error  PN105 stray-text  `\\u{202E}bpm` is not a key');
     expect(checked.out()).toContain('<stdin>:5:15  error  PN205 unknown-word  `can\\u{202E}ula` is not a known value');
+  });
+
+  it('a joiner no script or emoji needs there, a soft hyphen and the invisible operators are shown', () => {
+    // Between Latin letters, beside a digit or a space, at either end, or two in a row.
+    expect(visible('h\u200dr h\u200cr 1\u200d2 \u200d\u200c x\u200d')).toBe('h\\u{200D}r h\\u{200C}r 1\\u{200D}2 \\u{200D}\\u{200C} x\\u{200D}');
+    // A combining accent before the joiner does not hide it when a Latin letter follows.
+    expect(visible('e\u0301\u200dr')).toBe('e\u0301\\u{200D}r');
+    expect(visible('sa\u00adtu\u2062ration')).toBe('sa\\u{00AD}tu\\u{2062}ration');
+  });
+
+  it('a zero-width joiner in a key is shown, so h<ZWJ>r does not read as `hr` in "is not a key"', async () => {
+    const checked = io('@ day 1 08:00\nvitals h\u200dr 80, s\u00adpo2 94\n');
+    await run(['check', '-'], checked);
+    expect(checked.out()).toMatch(/`h\\u\{200D\}r` is not a key/);
+    expect(checked.out()).toMatch(/`s\\u\{00AD\}po2` is not a key/);
+    expect(checked.out()).not.toMatch(/[\u200d\u00ad]/);
   });
 
   it('an invisible character in a key is shown, so `h\u{200B}r` does not read as `hr` in "is not a key"', async () => {

@@ -198,6 +198,16 @@ describe('language features', () => {
   });
 });
 
+describe('messages that quote the note', () => {
+  it('show an invisible character in what they quote as an escape, as the command line does', async () => {
+    const uri = client.open(join(process.cwd(), 'joiner.pneu'), '@ 08:00\nvitals h\u200dr 80, spo2 94\nnote seen by the team 👩\u200d⚕️\n');
+    const p = await client.diagnostics(uri);
+    const messages = p.diagnostics.map((d) => d.message);
+    expect(messages).toContain('`h\\u{200D}r` is not a key of vitals lines. Did you mean `hr`?');
+    expect(messages.join('\n')).not.toContain('\u200d');
+  });
+});
+
 describe('settings', () => {
   it('follows workspace configuration: hint categories and conventions', async () => {
     const uri = client.open(join(process.cwd(), 'settings.pneu'), '@ 08:00\nvent vt 420, peep 8, plateau 27, fio2 0.5\nabg 7.40/40/90/24.4\n');

@@ -8,21 +8,17 @@
  * `\x1b`); each bidirectional control (the embeddings and overrides U+202A–U+202E, the isolates
  * U+2066–U+2069, the marks U+200E, U+200F and U+061C) as `\u{HHHH}`, and so are the line and
  * paragraph separators U+2028 and U+2029 (some terminals break the line there, so a note could
- * seem to print a line of its own) and the invisible U+200B, U+2060 and U+FEFF (`h\u{200B}r` must
- * not look like `hr` in "is not a key"). The joiners U+200C and U+200D stay: scripts and emoji need
- * them. Only the text renderers need this; JSON, SARIF and CSV are written by their own encoders
- * and keep these characters as data.
+ * seem to print a line of its own) and the invisible U+200B, U+00AD, U+2060–U+2064 and U+FEFF
+ * (`h\u{200B}r` must not look like `hr` in "is not a key"). The joiners U+200C and U+200D are
+ * written escaped too unless they sit between characters that can need them (in an emoji, in a
+ * word of Arabic or an Indic script): `h\u{200D}r`, but 👩‍⚕️ as it is. The rules are the core's
+ * (`shownEscaped` in core/util/format.ts), which the language server applies to the messages it
+ * sends too. Only the text renderers need this; JSON, SARIF and CSV are written by their own
+ * encoders and keep these characters as data.
  */
-
-const SHOWN_ESCAPED = /[\u0000-\u0008\u000a-\u001f\u007f-\u009f\u061c\u200e\u200f\u202a-\u202e\u2066-\u2069\u2028\u2029\u200b\u2060\ufeff]/g;
-const ANY_SHOWN_ESCAPED = /[\u0000-\u0008\u000a-\u001f\u007f-\u009f\u061c\u200e\u200f\u202a-\u202e\u2066-\u2069\u2028\u2029\u200b\u2060\ufeff]/;
-
-const escaped = (c: string): string => {
-  const code = c.charCodeAt(0);
-  return code <= 0xff ? `\\x${code.toString(16).padStart(2, '0')}` : `\\u{${code.toString(16).toUpperCase().padStart(4, '0')}}`;
-};
+import { shownEscaped } from '../core/util/format';
 
 /** The text with its control characters (except tab) as `\xHH`, and its bidirectional controls, separators and invisible characters as `\u{HHHH}`. */
 export function visible(text: string): string {
-  return ANY_SHOWN_ESCAPED.test(text) ? text.replace(SHOWN_ESCAPED, escaped) : text;
+  return shownEscaped(text);
 }

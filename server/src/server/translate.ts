@@ -17,6 +17,7 @@ import {
 } from 'vscode-languageserver/node';
 import type { ActionInfo, CompletionInfo, InlayHintInfo, SymbolInfo } from '../core/service/types';
 import type { Finding, Range, Severity } from '../core/types';
+import { shownEscaped } from '../core/util/format';
 
 const SEVERITY: Readonly<Record<Severity, DiagnosticSeverity>> = {
   error: DiagnosticSeverity.Error,
@@ -25,6 +26,12 @@ const SEVERITY: Readonly<Record<Severity, DiagnosticSeverity>> = {
   hint: DiagnosticSeverity.Hint,
 };
 
+/**
+ * A finding as a diagnostic. Its message, which may quote the note, has the characters that would
+ * make it read as something the note does not hold written as escapes (`shownEscaped`: controls,
+ * bidirectional controls, invisible characters, a joiner between Latin letters), as the command
+ * line shows it: `h\u{200D}r` is not a key, where the editor's list of problems would show `hr`.
+ */
 export function toDiagnostic(f: Finding, uri: string, docsUri: string): Diagnostic {
   return {
     range: f.range,
@@ -32,8 +39,8 @@ export function toDiagnostic(f: Finding, uri: string, docsUri: string): Diagnost
     code: f.code,
     codeDescription: { href: `${docsUri}#${f.docAnchor}` },
     source: 'pneumark',
-    message: f.message,
-    ...(f.related && f.related.length > 0 ? { relatedInformation: f.related.map((r) => ({ location: { uri, range: r.range }, message: r.message })) } : {}),
+    message: shownEscaped(f.message),
+    ...(f.related && f.related.length > 0 ? { relatedInformation: f.related.map((r) => ({ location: { uri, range: r.range }, message: shownEscaped(r.message) })) } : {}),
   };
 }
 

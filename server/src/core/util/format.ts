@@ -56,3 +56,44 @@ export function wordList(items: readonly string[], last: 'and' | 'or' = 'and'): 
   if (once.length <= 1) return once[0] ?? '';
   return `${once.slice(0, -1).join(', ')} ${last} ${once[once.length - 1]}`;
 }
+
+/**
+ * Characters that could make text from a note or a file name show something other than what it
+ * holds, always written escaped by `shownEscaped`: each C0 control but tab, DEL and each C1
+ * control (an escape sequence must not clear a terminal or colour what follows); the
+ * bidirectional controls (the embeddings and overrides U+202A–U+202E, the isolates U+2066–U+2069,
+ * the marks U+200E, U+200F and U+061C), which reorder a line; the line and paragraph separators
+ * U+2028 and U+2029 (some terminals break the line there); and the invisible U+200B (zero-width
+ * space), U+00AD (soft hyphen), U+2060 (word joiner), U+2061–U+2064 (invisible operators) and
+ * U+FEFF (zero-width no-break space), so that `h\u{200B}r` does not read as `hr` in "is not a key".
+ */
+const ALWAYS_ESCAPED = '\\u0000-\\u0008\\u000a-\\u001f\\u007f-\\u009f\\u00ad\\u061c\\u200b\\u200e\\u200f\\u202a-\\u202e\\u2066-\\u2069\\u2028\\u2029\\u2060-\\u2064\\ufeff';
+/**
+ * A character beside which the zero-width joiner (U+200D) or non-joiner (U+200C) can be needed: a
+ * mark (an Indic virama, an emoji's variation selector), an emoji or skin tone, or a letter of a
+ * script other than Latin, Greek and Cyrillic (Arabic and Persian words, Indic conjuncts).
+ */
+const JOINABLE = '[\\p{M}\\p{Extended_Pictographic}\\p{Emoji_Modifier}]|(?![\\p{Script=Latin}\\p{Script=Greek}\\p{Script=Cyrillic}])\\p{L}';
+/**
+ * What `shownEscaped` writes escaped: the characters above, and a joiner that is not between two
+ * characters that can need it (`h\u{200D}r`, a joiner at either end or beside a digit, a space
+ * or another joiner). Joiners inside an emoji (👩‍⚕️) or a word of a script that uses them are kept.
+ */
+const SHOWN_ESCAPED = new RegExp(`[${ALWAYS_ESCAPED}]|(?<!${JOINABLE})[\\u200c\\u200d]|[\\u200c\\u200d](?!${JOINABLE})`, 'gu');
+const MAYBE_ESCAPED = new RegExp(`[${ALWAYS_ESCAPED}\\u200c\\u200d]`, 'u');
+
+const escapedChar = (c: string): string => {
+  const code = c.charCodeAt(0);
+  // Control characters as `\xHH` (ESC as `\x1b`), the others (format characters) as `\u{HHHH}`.
+  return code < 0xa0 ? `\\x${code.toString(16).padStart(2, '0')}` : `\\u{${code.toString(16).toUpperCase().padStart(4, '0')}}`;
+};
+
+/**
+ * Text from a note (labels, prose, words, file names, messages that quote them) as a person should
+ * see it: the characters of `SHOWN_ESCAPED` written as `\xHH` (controls) or `\u{HHHH}`, everything
+ * else as it is (letters of every script, emoji with their joiners). For text shown on a terminal
+ * or in an editor's list of problems; data formats (JSON, SARIF, CSV) keep the text as written.
+ */
+export function shownEscaped(text: string): string {
+  return MAYBE_ESCAPED.test(text) ? text.replace(SHOWN_ESCAPED, escapedChar) : text;
+}
