@@ -263,6 +263,68 @@ describe('.pneuignore files in the folders scanned', () => {
   });
 });
 
+describe('.pneuignore files of the project, above the folder named', () => {
+  /** A project: its own file, one in `notes/`, and notes that each of them leaves out. */
+  const project = (marker: Readonly<Record<string, string>>): string => {
+    const top = tempDir();
+    lay(top, {
+      // Above the project: never read for its notes.
+      '.pneuignore': '*.pneu\n',
+      ...Object.fromEntries(Object.entries(marker).map(([path, text]) => [`proj/${path}`, text])),
+      'proj/.pneuignore': 'drafts/\n',
+      'proj/notes/.pneuignore': 'old.pneu\n/ward-b/shelved.pneu\n',
+      'proj/notes/ward-a/one.pneu': alarming,
+      'proj/notes/ward-a/old.pneu': alarming,
+      'proj/notes/ward-a/drafts/draft.pneu': alarming,
+      'proj/notes/ward-b/two.pneu': alarming,
+      'proj/notes/ward-b/shelved.pneu': alarming,
+      'elsewhere/mine.pneu': alarming,
+    });
+    return top;
+  };
+
+  it.each([
+    ['a repository (.git folder)', { '.git/HEAD': 'ref: refs/heads/main\n' }],
+    ['a repository worktree (.git file)', { '.git': 'gitdir: /nowhere\n' }],
+    ['a pneumark.config.json', { 'pneumark.config.json': '{}\n' }],
+  ])('apply from the project folder, %s, down to each note, from wherever the notes are checked', async (_what, marker) => {
+    const top = project(marker);
+    const proj = join(top, 'proj');
+    const cases: [cwd: string, args: string[], expected: string[]][] = [
+      [proj, ['notes/ward-a'], ['notes/ward-a/one.pneu']],
+      // Inside the folder named: the files above the working folder apply too.
+      [join(proj, 'notes', 'ward-a'), ['.'], ['one.pneu']],
+      [join(proj, 'notes', 'ward-a'), ['one.pneu', 'old.pneu', 'drafts/draft.pneu'], ['one.pneu']],
+      [join(proj, 'notes', 'ward-b'), ['.'], ['two.pneu']],
+      // Beside it, and from outside the project.
+      [join(proj, 'notes', 'ward-b'), ['../ward-a'], ['../ward-a/one.pneu']],
+      [join(top, 'elsewhere'), ['../proj/notes/ward-a', '../proj/notes/ward-b/*.pneu'], ['../proj/notes/ward-a/one.pneu', '../proj/notes/ward-b/two.pneu']],
+      [join(top, 'elsewhere'), [join(proj, 'notes', 'ward-a')], ['../proj/notes/ward-a/one.pneu']],
+    ];
+    for (const [cwd, args, expected] of cases) {
+      const out = io(cwd);
+      await run(['check', ...args], out);
+      expect(reported(out.out()), `${cwd}: check ${args.join(' ')}`).toEqual(expected);
+    }
+  });
+
+  it('are not read above the folder named when no folder above holds .git or pneumark.config.json', async () => {
+    const top = project({});
+    const ward = io(join(top, 'proj', 'notes', 'ward-a'));
+    await run(['check', '.'], ward);
+    expect(reported(ward.out())).toEqual(['drafts/draft.pneu', 'old.pneu', 'one.pneu']);
+  });
+
+  it('leave the working folder’s own file matched relative to the folder named, for notes outside it', async () => {
+    const top = project({ 'pneumark.config.json': '{}\n' });
+    // Anchored: it leaves out ward-a/one.pneu, not ward-a/bed/one.pneu.
+    lay(top, { 'proj/notes/ward-b/.pneuignore': '/one.pneu\n', 'proj/notes/ward-a/bed/one.pneu': alarming });
+    const out = io(join(top, 'proj', 'notes', 'ward-b'));
+    await run(['check', '../ward-a'], out);
+    expect(reported(out.out())).toEqual(['../ward-a/bed/one.pneu']);
+  });
+});
+
 describe('notes that are not UTF-8', () => {
   const latin1 = Buffer.concat([Buffer.from('@ 08:00 r'), Buffer.from([0xe9]), Buffer.from('veil\nvitals hr 80\n')]);
 

@@ -4,19 +4,21 @@
  * glob patterns, and `-` for standard input; minus what `--exclude` patterns and `.pneuignore` files
  * exclude (gitignore syntax: `--exclude` matched relative to the working folder, or for a note
  * outside it relative to the folder named on the command line; each `.pneuignore`, in the working
- * folder or in a folder on the way down to a note, relative to its own folder, as `.gitignore`
- * files are). A file named on the command line is left out too when they exclude it. A path that
+ * folder or in a folder on the way down to a note from the note's project folder (its
+ * repository's root, else the folder of its `pneumark.config.json`), relative to its own folder,
+ * as `.gitignore` files are). A file named on the command line is left out too when they exclude it. A path that
  * exists is always taken as a path, even when it looks like a pattern (`a[1].pneu`, `notes
  * (copy)`). The list is sorted, so output order never depends on the file system or on
  * parallelism. Unreadable, binary, non-UTF-8 or huge files give a one-line problem and the run goes
  * on; inputs that hold no note at all give a one-line problem too, so a run pointed at the wrong
  * folder does not pass.
  */
-import { closeSync, fstatSync, openSync, readFileSync, readSync, realpathSync, statSync, type Stats } from 'node:fs';
+import { closeSync, existsSync, fstatSync, openSync, readFileSync, readSync, realpathSync, statSync, type Stats } from 'node:fs';
 import { isUtf8 } from 'node:buffer';
 import { basename, dirname, isAbsolute, join, normalize, relative, resolve, sep } from 'node:path';
 import ignore, { type Ignore } from 'ignore';
 import { globSync, isDynamicPattern } from 'tinyglobby';
+import { CONFIG_FILE_NAME } from '../core/config';
 
 export const MAX_NOTE_BYTES = 20 * 1024 * 1024;
 export const NOTE_EXTENSION = '.pneu';
@@ -207,21 +209,28 @@ interface FolderState {
 
 /**
  * The `.pneuignore` files, read as git reads `.gitignore` files: one in each folder from the top
- * down to the note's folder, where the top is the working folder for a note inside it (or the
- * folder named on the command line, when that holds the working folder) and otherwise the folder
- * named on the command line. Each file's patterns are matched relative to its own folder and apply
- * only to what lies below it; a deeper file decides over a shallower one (`!keep.pneu` takes back
- * a `*.pneu` from above), and nothing below a folder that is left out can be taken back. For a note
- * outside the working folder, the working folder's file applies too, first, matched relative to
- * the folder named on the command line. Each folder's file is read once per run and each folder
- * worked out once, whatever the number of notes in it: a scan of thousands of notes reads a file
- * per folder, not per note.
+ * down to the note's folder. The top is the highest of: the note's project folder (the nearest
+ * folder above it that holds `.git`, the root of its repository, or when none does, the nearest
+ * that holds `pneumark.config.json`), the working folder for a note inside it, and the folder named
+ * on the command line (for a note outside the working folder; or inside it, when the named folder
+ * holds the working folder). So the files of a project apply to its notes from wherever they are
+ * checked: `check ward-a` run inside `notes/`, or `check ../notes/ward-a` from beside it, reads
+ * `notes/.pneuignore` and the project's own as `check notes` from the project's folder does. Each
+ * file's patterns are matched relative to its own folder and apply only to what lies below it; a
+ * deeper file decides over a shallower one (`!keep.pneu` takes back a `*.pneu` from above), and
+ * nothing below a folder that is left out can be taken back. For a note outside the working
+ * folder, the working folder's file applies too, first, matched relative to the folder named on
+ * the command line. Each folder's file is read once per run and each folder worked out once,
+ * whatever the number of notes in it: a scan of thousands of notes reads a file per folder, not
+ * per note.
  */
 class IgnoreFiles {
   private readonly read = new Map<string, Ignore | null>();
   private readonly folders = new Map<string, FolderState>();
   /** The state of a note's folder by how the note was reached (the top and the outer file follow from that). */
   private readonly noteFolders = new Map<string, FolderState>();
+  /** Per folder, the nearest folder at or above it holding `.git`, and the nearest holding `pneumark.config.json`. */
+  private readonly marks = new Map<string, { readonly git: string | null; readonly config: string | null }>();
 
   constructor(private readonly cwd: string) {}
 
@@ -241,8 +250,29 @@ class IgnoreFiles {
   /** The highest folder whose `.pneuignore` applies to notes in `folder`. */
   private top(folder: string, inCwd: boolean, root: string): string {
     const rootHolds = !outside(relative(root, folder));
-    if (!inCwd) return rootHolds ? root : folder;
-    return rootHolds && !outside(relative(root, this.cwd)) ? root : this.cwd;
+    const named = !inCwd ? (rootHolds ? root : folder) : rootHolds && !outside(relative(root, this.cwd)) ? root : this.cwd;
+    const project = this.projectOf(folder);
+    return project !== null && !outside(relative(project, named)) ? project : named;
+  }
+
+  /** The project folder of notes in `folder`: the root of its repository, else the folder of its `pneumark.config.json`; null when there is neither. */
+  private projectOf(folder: string): string | null {
+    const marks = this.marksOf(folder);
+    return marks.git ?? marks.config;
+  }
+
+  private marksOf(folder: string): { readonly git: string | null; readonly config: string | null } {
+    const known = this.marks.get(folder);
+    if (known !== undefined) return known;
+    const parent = dirname(folder);
+    const above = parent === folder ? { git: null, config: null } : this.marksOf(parent);
+    const marks = {
+      // `.git` is a folder in a repository's root, a file in a worktree or a submodule.
+      git: existsSync(join(folder, '.git')) ? folder : above.git,
+      config: isFile(join(folder, CONFIG_FILE_NAME)) ? folder : above.config,
+    };
+    this.marks.set(folder, marks);
+    return marks;
   }
 
   /** `folder`'s state below `top`; `outerBase`: where the working folder's file is matched from for notes outside it. */
@@ -256,7 +286,9 @@ class IgnoreFiles {
       const outer = outerBase === null ? null : this.patternsIn(this.cwd);
       const own = this.patternsIn(folder);
       const levels: IgnoreLevel[] = [];
-      if (outer) levels.push({ patterns: outer, prefix: '' });
+      // Matched relative to the folder named on the command line, which may lie below the top.
+      const outerPrefix = outerBase === null ? '' : toPosix(relative(folder, outerBase));
+      if (outer) levels.push({ patterns: outer, prefix: outerPrefix === '' || outside(outerPrefix) ? '' : `${outerPrefix}/` });
       if (own) levels.push({ patterns: own, prefix: '' });
       state = { prefix: '', levels, left: false };
     } else {
@@ -295,11 +327,22 @@ class IgnoreFiles {
 function leftOut(levels: readonly IgnoreLevel[], path: string): boolean {
   let left = false;
   for (const { patterns, prefix } of levels) {
+    // Only below its own folder (the working folder's file for notes outside it applies below the
+    // folder named on the command line, which may be below the top).
+    if (!path.startsWith(prefix) || path === prefix) continue;
     const verdict = patterns.test(path.slice(prefix.length));
     if (verdict.ignored) left = true;
     else if (verdict.unignored) left = false;
   }
   return left;
+}
+
+function isFile(path: string): boolean {
+  try {
+    return statSync(path).isFile();
+  } catch {
+    return false;
+  }
 }
 
 /**
