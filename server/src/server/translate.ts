@@ -118,7 +118,8 @@ export function toCodeAction(a: ActionInfo, uri: string, diagnostics: readonly D
   const keys = new Set((a.resolves ?? []).map((f) => diagnosticKey(f.code, f.range)));
   const related = keys.size > 0 ? diagnostics.filter((d) => typeof d.code === 'string' && keys.has(diagnosticKey(d.code, d.range))) : [];
   return {
-    title: a.title,
+    // A title may quote the note (`Replace \`…\` with [name]`): shown as diagnostics' messages are.
+    title: shownEscaped(a.title),
     kind: ACTION_KIND[a.kind],
     edit: { changes: { [uri]: a.edits } },
     ...(related.length > 0 ? { diagnostics: related } : {}),
