@@ -9,7 +9,7 @@
  * (`2744-1`) have the wrong number of parts or a decimal, so they never read as dates.
  */
 import { followedByUnit } from './quantities';
-import { endsWithPhrase, isAlnumAt, isBlankGap, isDigitAt, runsOf, withoutTrailing, wordsBefore, type Run } from './text';
+import { endsWithPhrase, isAlnumAt, isBlankGap, isDigitAt, withoutTrailing, wordsBefore, type Run } from './text';
 import { match, type PrivacyMatch } from './types';
 
 /** Month spellings: full names and abbreviations. */
@@ -17,6 +17,13 @@ const MONTHS: readonly (readonly string[])[] = [
   ['january', 'jan'], ['february', 'feb'], ['march', 'mar'], ['april', 'apr'], ['may'], ['june', 'jun'],
   ['july', 'jul'], ['august', 'aug'], ['september', 'sep', 'sept'], ['october', 'oct'], ['november', 'nov'], ['december', 'dec'],
 ];
+
+/** Each spelling of `MONTHS` with its month's index (0 for January). */
+const MONTH_INDEX: ReadonlyMap<string, number> = new Map(MONTHS.flatMap((names, index) => names.map((name) => [name, index] as const)));
+
+/** The shortest and longest month spellings: other words are no month, found without lowering their case. */
+const MONTH_MIN_LENGTH = Math.min(...[...MONTH_INDEX.keys()].map((name) => name.length));
+const MONTH_MAX_LENGTH = Math.max(...[...MONTH_INDEX.keys()].map((name) => name.length));
 
 /** Full month names that are also ordinary words: they count only when capitalised. */
 const AMBIGUOUS_FULL = new Set(['may', 'march', 'august']);
@@ -29,10 +36,10 @@ const BIRTH_FILLERS = new Set(['on', 'in', 'is', 'was', 'the', 'at']);
  * capitals (`MAR`, `SEP`, `MAY`) count too, but only in a date with a year (see `writtenDates`).
  */
 export function monthOf(run: Run): number | null {
-  if (run.kind !== 'letters') return null;
+  if (run.kind !== 'letters' || run.text.length < MONTH_MIN_LENGTH || run.text.length > MONTH_MAX_LENGTH) return null;
   const lower = run.text.toLowerCase();
-  const index = MONTHS.findIndex((names) => names.includes(lower));
-  if (index < 0) return null;
+  const index = MONTH_INDEX.get(lower);
+  if (index === undefined) return null;
   const full = MONTHS[index]![0] === lower;
   const capitalised = run.text.charAt(0) === run.text.charAt(0).toUpperCase() && run.text.slice(1) === run.text.slice(1).toLowerCase();
   if (full && !AMBIGUOUS_FULL.has(lower)) return index + 1;
@@ -47,7 +54,8 @@ function isCapitals(word: string): boolean {
 /** An abbreviated month (`Mar`, `Sept`, `MAR`): a full stop may follow it (`Mar. 4`). */
 function isAbbreviatedMonth(run: Run): boolean {
   const lower = run.text.toLowerCase();
-  return MONTHS.some((names) => names[0] !== lower && names.includes(lower));
+  const index = MONTH_INDEX.get(lower);
+  return index !== undefined && MONTHS[index]![0] !== lower;
 }
 
 /** A day of the month: `4`, `04`, `4th`, `22nd`. */
@@ -254,13 +262,19 @@ function birthYears(text: string, runs: readonly Run[]): Found[] {
   return out;
 }
 
-export function findDates(text: string): PrivacyMatch[] {
-  const runs = runsOf(text);
+/** Dates and dates of birth in `text`, whose runs are `runs`. */
+export function findDates(text: string, runs: readonly Run[]): PrivacyMatch[] {
   const out: PrivacyMatch[] = [];
-  for (const f of [...numericDates(text, runs), ...compactDates(runs), ...writtenDates(text, runs), ...birthYears(text, runs)]) {
-    const cue = birthCueBefore(text, f.start);
-    if (cue !== null) out.push(match('birth-date', text, f.start, f.end, cue));
-    else if (!f.needsBirthCue) out.push(match('calendar-date', text, f.start, f.end, null));
-  }
+  const add = (found: readonly Found[]) => {
+    for (const f of found) {
+      const cue = birthCueBefore(text, f.start);
+      if (cue !== null) out.push(match('birth-date', text, f.start, f.end, cue));
+      else if (!f.needsBirthCue) out.push(match('calendar-date', text, f.start, f.end, null));
+    }
+  };
+  add(numericDates(text, runs));
+  add(compactDates(runs));
+  add(writtenDates(text, runs));
+  add(birthYears(text, runs));
   return out;
 }

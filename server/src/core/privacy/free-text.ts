@@ -6,7 +6,7 @@
  * as `mode Smith`, an unknown key or stray text does).
  */
 import type { ItemNode, LineNode } from '../syntax/tree';
-import { scan } from './scan';
+import { scanPart } from './scan';
 import type { PrivacyMatch } from './types';
 import { NONE } from '../util/lists';
 
@@ -18,34 +18,38 @@ export interface FreeText {
 
 export function freeTextOf(node: LineNode): FreeText[] {
   const out: FreeText[] = [];
-  eachFreeText(node, (text, start) => { out.push({ text, start }); });
+  eachFreeText(node, (source, from, to) => { out.push({ text: source.slice(from, to), start: from }); });
   return out;
 }
 
-/** Calls `visit` with each free-text part of a line (its text, and where it starts in the line). */
-function eachFreeText(node: LineNode, visit: (text: string, start: number) => void): void {
+/**
+ * Calls `visit` with each free-text part of a line: `source[from, to)`, where `from` is also where
+ * the part starts in the line (`source` is the line, or the line with its readings blanked out).
+ * Parts are passed by position so that a part the scan rejects at a glance is never copied.
+ */
+function eachFreeText(node: LineNode, visit: (source: string, from: number, to: number) => void): void {
   const bodyEnd = node.comment ? node.comment.span.start : node.text.length;
   switch (node.kind) {
     case 'blank':
       break;
     case 'timepoint':
-      if (node.label) visit(node.label.text, node.label.span.start);
+      if (node.label) visit(node.text, node.label.span.start, node.label.span.end);
       break;
     case 'unknown': {
       const end = node.rest ? node.rest.span.end : node.first.span.end;
-      visit(node.text.slice(node.first.span.start, end), node.first.span.start);
+      visit(node.text, node.first.span.start, end);
       break;
     }
     case 'section':
       if (node.section === 'note') {
-        if (node.prose) visit(node.prose.text, node.prose.span.start);
+        if (node.prose) visit(node.text, node.prose.span.start, node.prose.span.end);
       } else {
         const masked = maskReadings(node.text, bodyEnd, node);
-        if (masked !== '') visit(masked, 0);
+        if (masked !== '') visit(masked, 0, masked.length);
       }
       break;
   }
-  if (node.comment) visit(node.comment.text, node.comment.span.start);
+  if (node.comment) visit(node.text, node.comment.span.start, node.comment.span.end);
 }
 
 /**
@@ -101,7 +105,7 @@ function hasFreeText(text: string, from: number, to: number): boolean {
 export function scanLine(node: LineNode): readonly PrivacyMatch[] {
   found = null;
   try {
-    eachFreeText(node, scanPart);
+    eachFreeText(node, scanFreeText);
     return found ?? NONE;
   } finally {
     found = null;
@@ -115,8 +119,10 @@ export function scanLine(node: LineNode): readonly PrivacyMatch[] {
  */
 let found: PrivacyMatch[] | null = null;
 
-function scanPart(text: string, start: number): void {
-  for (const m of scan(text)) {
-    (found ??= []).push({ ...m, span: { start: m.span.start + start, end: m.span.end + start } });
+function scanFreeText(source: string, from: number, to: number): void {
+  const matches = scanPart(source, from, to);
+  for (let k = 0; k < matches.length; k++) {
+    const m = matches[k]!;
+    (found ??= []).push({ ...m, span: { start: m.span.start + from, end: m.span.end + from } });
   }
 }

@@ -19,7 +19,7 @@
 import { FIELDS } from '../fields/registry';
 import { SECTIONS } from '../fields/sections';
 import { UNITS } from '../fields/units';
-import { isBlankGap, isLetterChar, isLowerChar, isUpperChar, runsOf, type Run } from './text';
+import { isAsciiLowerAt, isBlankGap, isLetterChar, isLowerChar, isUpperChar, mayBeUpperAt, runsOf, type Run } from './text';
 import { match, type PrivacyMatch } from './types';
 
 type Strength = 'strong' | 'weak';
@@ -253,28 +253,54 @@ interface Cue {
   readonly label: string;
 }
 
+/** The words that are cues in any case (besides the titles), lower case. */
+const CUE_WORDS: readonly string[] = ['as', 'kin', 'by', 'with', 'to', ...NAMING_WORDS, ...RELATIVES, ...OTHER_STRONG_WORDS, ...WEAK_WORDS];
+/** A longer word is no cue, found without lowering its case. */
+const LONGEST_CUE_WORD = Math.max(...CUE_WORDS.map((w) => w.length));
+
+/** The run before run `i` in lower case when only blanks separate them, else null. */
+function wordBefore(text: string, runs: readonly Run[], i: number): string | null {
+  const prev = runs[i - 1];
+  return prev && isBlankGap(text.slice(prev.end, runs[i]!.start)) ? prev.text.toLowerCase() : null;
+}
+
+/** Run `i` with the run before it and what is between (`known as`, `seen by`); run `i` alone when first. */
+function withRunBefore(text: string, runs: readonly Run[], i: number): string {
+  const prev = runs[i - 1];
+  return prev ? text.slice(prev.start, runs[i]!.end) : runs[i]!.text;
+}
+
 function cueAt(text: string, runs: readonly Run[], i: number): Cue | null {
   const run = runs[i]!;
   if (run.kind !== 'letters') return null;
   if (BARE_TITLES.has(run.text)) return { kind: 'bare-title', label: run.text };
   if (TITLES.has(run.text)) return { kind: 'title', label: run.text };
-  const lower = run.text.toLowerCase();
-  const prev = runs[i - 1];
-  const prevWord = prev && isBlankGap(text.slice(prev.end, run.start)) ? prev.text.toLowerCase() : null;
-  if (CAPITAL_TITLES.has(run.text)) return prevWord !== null && BEFORE_CAPITAL_ABBREVIATION.has(prevWord) ? null : { kind: 'capital-title', label: run.text };
-  // All-capital words are abbreviations, not cues (`PT` physiotherapy), except `NOK`.
-  if (run.text.length > 1 && run.text === run.text.toUpperCase() && lower !== 'nok') return null;
-  const withPrev = prev ? text.slice(prev.start, run.end) : run.text;
-  if (lower === 'as' && prevWord === 'known') return { kind: 'naming', label: withPrev };
-  if (lower === 'kin' && prevWord === 'of') {
-    const first = runs[i - 2];
-    return { kind: 'strong', label: first && first.text.toLowerCase() === 'next' ? text.slice(first.start, run.end) : withPrev };
+  if (CAPITAL_TITLES.has(run.text)) {
+    const prevWord = wordBefore(text, runs, i);
+    return prevWord !== null && BEFORE_CAPITAL_ABBREVIATION.has(prevWord) ? null : { kind: 'capital-title', label: run.text };
   }
-  if (lower === 'name' && prevWord !== null && NOT_PERSON_NAME.has(prevWord)) return null;
+  // Most words are no cue: tell them without a lower-case copy or a look at the word before.
+  if (run.text.length > LONGEST_CUE_WORD) return null;
+  const lower = run.text.toLowerCase();
+  // All-capital words are abbreviations, not cues (`PT` physiotherapy), except `NOK`. (A word
+  // starting in lower case is in capitals no more.)
+  if (run.text.length > 1 && !isAsciiLowerAt(run.text, 0) && run.text === run.text.toUpperCase() && lower !== 'nok') return null;
+  if (lower === 'as') return wordBefore(text, runs, i) === 'known' ? { kind: 'naming', label: withRunBefore(text, runs, i) } : null;
+  if (lower === 'kin' && wordBefore(text, runs, i) === 'of') {
+    const first = runs[i - 2];
+    return { kind: 'strong', label: first && first.text.toLowerCase() === 'next' ? text.slice(first.start, run.end) : withRunBefore(text, runs, i) };
+  }
+  if (lower === 'name') {
+    const prevWord = wordBefore(text, runs, i);
+    if (prevWord !== null && NOT_PERSON_NAME.has(prevWord)) return null;
+  }
   if (NAMING_WORDS.has(lower)) return { kind: 'naming', label: run.text };
   if (RELATIVES.has(lower)) return { kind: 'relative', label: run.text };
   if (OTHER_STRONG_WORDS.has(lower)) return { kind: 'strong', label: run.text };
-  if (lower === 'by' || lower === 'with' || lower === 'to') return prevWord !== null && VERBS_BEFORE_PREPOSITION.has(prevWord) ? { kind: 'weak', label: withPrev } : null;
+  if (lower === 'by' || lower === 'with' || lower === 'to') {
+    const prevWord = wordBefore(text, runs, i);
+    return prevWord !== null && VERBS_BEFORE_PREPOSITION.has(prevWord) ? { kind: 'weak', label: withRunBefore(text, runs, i) } : null;
+  }
   if (WEAK_WORDS.has(lower)) return { kind: 'weak', label: run.text };
   return null;
 }
@@ -409,12 +435,21 @@ function firstHistoryHeading(runs: readonly Run[]): number {
   return runs.length;
 }
 
-export function findNames(text: string): PrivacyMatch[] {
-  const runs = runsOf(text);
+/** The index of the last character that may be a capital (`mayBeUpperAt`), or -1 when none is. */
+function lastCapital(text: string): number {
+  let k = text.length - 1;
+  while (k >= 0 && !mayBeUpperAt(text, k)) k--;
+  return k;
+}
+
+/** Names in `text`, whose runs are `runs`. */
+export function findNames(text: string, runs: readonly Run[]): PrivacyMatch[] {
   const out: PrivacyMatch[] = [];
+  // A name starts with a capital after its cue: the runs from the last capital on cue no name.
+  const capital = lastCapital(text);
   // Found when a relative with a mark first needs it (most texts have none).
   let heading = -1;
-  for (let i = 0; i < runs.length; i++) {
+  for (let i = 0; i < runs.length && runs[i]!.end < capital; i++) {
     const found = cueAt(text, runs, i);
     if (!found) continue;
     const cue = runs[i]!;

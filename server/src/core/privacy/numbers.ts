@@ -9,9 +9,8 @@
  * resumes after it whether or not it was an identifier.
  */
 import { followedByUnit, isGluedQuantity } from './quantities';
-import { endsWithPhrase, isAlnumAt, isDigitAt, isLetterAt, runsOf, withoutTrailing, wordsBefore } from './text';
+import { endsWithPhrase, isAlnumAt, isDigitAt, isLetterAt, withoutTrailing, wordsBefore, type Run } from './text';
 import { match, type PrivacyMatch } from './types';
-import { pushAll } from '../util/lists';
 
 interface DigitGroup {
   readonly start: number;
@@ -32,6 +31,8 @@ interface Candidate {
 
 const MAX_GROUPS = 8;
 const MAX_DIGITS = 20;
+/** Every identifier of digit groups needs 5 digits at least (after a record cue); most need 7 or more. */
+const MIN_DIGITS = 5;
 
 /** Phone cues (not `call`: `on call` is a duty, not a number). */
 const PHONE_CUES = new Set(['tel', 'telephone', 'phone', 'mobile', 'mob', 'cell', 'cellphone', 'fax', 'contact', 'landline', 'whatsapp']);
@@ -74,65 +75,98 @@ function endsCleanly(text: string, end: number): boolean {
   return true;
 }
 
-function readGroup(text: string, j: number): DigitGroup | null {
+/**
+ * Where the group of digits at `j` ends (after its `)` when it is in parentheses, `(555)`), or -1
+ * when no group starts there.
+ */
+function groupEnd(text: string, j: number): number {
   if (text.charAt(j) === '(' && isDigitAt(text, j + 1)) {
     let k = j + 1;
     while (k < text.length && isDigitAt(text, k) && k - j <= 6) k++;
-    if (text.charAt(k) !== ')') return null;
-    return { start: j, end: k + 1, digits: text.slice(j + 1, k), paren: true };
+    return text.charAt(k) === ')' ? k + 1 : -1;
   }
-  if (!isDigitAt(text, j)) return null;
+  if (!isDigitAt(text, j)) return -1;
   let k = j;
   while (k < text.length && isDigitAt(text, k)) k++;
-  return { start: j, end: k, digits: text.slice(j, k), paren: false };
+  return k;
 }
 
-/** Reads a candidate starting at `i`; `next` is where scanning resumes. */
-function readCandidate(text: string, i: number): { readonly candidate: Candidate | null; readonly next: number } {
+/**
+ * The groups of the candidate `readCandidate` is reading (where each starts and ends, the first
+ * `groupCount`) and the separators after them: arrays kept from one candidate to the next, as most
+ * candidates (`118`, `26`) hold fewer than the five digits every identifier needs and are dropped
+ * without building anything.
+ */
+const groupStarts: number[] = [];
+const groupEnds: number[] = [];
+const groupSeps: string[] = [];
+let groupCount = 0;
+let sepCount = 0;
+
+/** The group that `readCandidate` read at `[start, end)`. */
+function digitGroup(text: string, start: number, end: number): DigitGroup {
+  const paren = text.charAt(start) === '(';
+  return { start, end, digits: paren ? text.slice(start + 1, end - 1) : text.slice(start, end), paren };
+}
+
+/**
+ * Reads a candidate starting at `i` and, when it holds five digits or more (fewer make no
+ * identifier: see `classify`), adds what it is to `out`; returns where scanning resumes.
+ */
+function readCandidate(text: string, i: number, out: PrivacyMatch[]): number {
   let j = i;
   const plus = text.charAt(j) === '+';
   if (plus) j++;
-  const groups: DigitGroup[] = [];
-  const seps: string[] = [];
+  groupCount = 0;
+  sepCount = 0;
   let digits = 0;
   for (;;) {
-    const group = readGroup(text, j);
-    if (!group) {
-      if (groups.length > 0) seps.pop();
+    const end = groupEnd(text, j);
+    if (end < 0) {
+      if (groupCount > 0 && sepCount > 0) sepCount--;
       break;
     }
-    groups.push(group);
-    digits += group.digits.length;
-    j = group.end;
-    if (groups.length > MAX_GROUPS || digits > MAX_DIGITS) {
+    const paren = text.charAt(j) === '(';
+    groupStarts[groupCount] = j;
+    groupEnds[groupCount] = end;
+    groupCount++;
+    digits += paren ? end - j - 2 : end - j;
+    j = end;
+    if (groupCount > MAX_GROUPS || digits > MAX_DIGITS) {
       // Too long to be a phone or record number: skip the whole run of digit groups.
       while (j < text.length && (isDigitAt(text, j) || text.charAt(j) === ' ' || text.charAt(j) === '-' || text.charAt(j) === '.')) j++;
-      return { candidate: null, next: j };
+      return j;
     }
     const c = text.charAt(j);
     if ((c === ' ' || c === '-' || c === '.') && (isDigitAt(text, j + 1) || text.charAt(j + 1) === '(')) {
-      seps.push(c);
+      groupSeps[sepCount++] = c;
       j++;
       continue;
     }
-    if (group.paren && isDigitAt(text, j)) {
-      seps.push('');
+    if (paren && isDigitAt(text, j)) {
+      groupSeps[sepCount++] = '';
       continue;
     }
     break;
   }
-  const last = groups[groups.length - 1];
-  if (!last) return { candidate: null, next: i + 1 };
-  if (!endsCleanly(text, last.end)) {
-    let k = last.end;
+  if (groupCount === 0) return i + 1;
+  const lastEnd = groupEnds[groupCount - 1]!;
+  if (!endsCleanly(text, lastEnd)) {
+    let k = lastEnd;
     while (k < text.length && isAlnumAt(text, k)) k++;
-    return { candidate: null, next: Math.max(k, i + 1) };
+    return Math.max(k, i + 1);
   }
-  return { candidate: { start: i, end: last.end, plus, groups, seps }, next: last.end };
+  if (digits >= MIN_DIGITS) {
+    const groups: DigitGroup[] = [];
+    for (let k = 0; k < groupCount; k++) groups.push(digitGroup(text, groupStarts[k]!, groupEnds[k]!));
+    const m = classify(text, { start: i, end: lastEnd, plus, groups, seps: groupSeps.slice(0, sepCount) });
+    if (m) out.push(m);
+  }
+  return lastEnd;
 }
 
-function candidatesOf(text: string): Candidate[] {
-  const out: Candidate[] = [];
+/** Adds the phone and record numbers made of digit groups to `out`, in order. */
+function digitIdentifiers(text: string, out: PrivacyMatch[]): void {
   let i = 0;
   while (i < text.length) {
     const c = text.charAt(i);
@@ -143,11 +177,8 @@ function candidatesOf(text: string): Candidate[] {
       while (i < text.length && isDigitAt(text, i) && isDigitAt(text, i - 1)) i++;
       continue;
     }
-    const { candidate, next } = readCandidate(text, i);
-    if (candidate) out.push(candidate);
-    i = Math.max(next, i + 1);
+    i = Math.max(readCandidate(text, i, out), i + 1);
   }
-  return out;
 }
 
 /** Modulus-11 check digit of a 10-digit NHS number (NHS Data Dictionary, from memory). */
@@ -186,8 +217,7 @@ function hasShape(c: Candidate, shape: readonly number[]): boolean {
 function classify(text: string, c: Candidate): PrivacyMatch | null {
   const all = c.groups.map((g) => g.digits).join('');
   const n = all.length;
-  // Every identifier needs 5 digits at least (after a record cue); most need 7 or more.
-  if (n < 5) return null;
+  if (n < MIN_DIGITS) return null;
   const paren = c.groups.some((g) => g.paren);
   // A LOINC-like code (`2744-1`, `30525-0`: digits, a hyphen, one check digit) is no identifier.
   if (!c.plus && !paren && c.groups.length === 2 && c.seps[0] === '-' && c.groups[1]!.digits.length === 1 && c.groups[0]!.digits.length <= 5) return null;
@@ -244,10 +274,10 @@ function classify(text: string, c: Candidate): PrivacyMatch | null {
   return null;
 }
 
-/** Identifiers of letters and digits: `AB123456`, `K1234567`, or any after a record cue (`MRN RX12345`). */
-function mixedIdentifiers(text: string): PrivacyMatch[] {
-  const out: PrivacyMatch[] = [];
-  for (const run of runsOf(text)) {
+/** Adds the identifiers of letters and digits to `out`: `AB123456`, `K1234567`, or any after a record cue (`MRN RX12345`). */
+function mixedIdentifiers(text: string, runs: readonly Run[], out: PrivacyMatch[]): void {
+  for (let r = 0; r < runs.length; r++) {
+    const run = runs[r]!;
     if (run.kind !== 'mixed' || run.text.length > 20) continue;
     let digits = 0;
     for (let k = 0; k < run.text.length; k++) if (isDigitAt(run.text, k)) digits++;
@@ -263,15 +293,12 @@ function mixedIdentifiers(text: string): PrivacyMatch[] {
     const prefixShape = lead >= 1 && lead <= 3 && digits === run.text.length - lead && digits >= 6;
     if (prefixShape || digits >= 7) out.push(match('record-number', text, run.start, run.end, null));
   }
-  return out;
 }
 
-export function findNumberIdentifiers(text: string): PrivacyMatch[] {
+/** Phone and record numbers in `text`, whose runs are `runs`. */
+export function findNumberIdentifiers(text: string, runs: readonly Run[]): PrivacyMatch[] {
   const out: PrivacyMatch[] = [];
-  for (const c of candidatesOf(text)) {
-    const m = classify(text, c);
-    if (m) out.push(m);
-  }
-  pushAll(out, mixedIdentifiers(text));
+  digitIdentifiers(text, out);
+  mixedIdentifiers(text, runs, out);
   return out;
 }

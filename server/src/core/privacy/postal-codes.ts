@@ -8,7 +8,7 @@
  * - After a postcode cue (`postcode`, `post code`, `postal code`, `zip`, `zip code`, `address`):
  *   a UK postcode in any case, a Canadian one (`K1A 0B1`), a ZIP or ZIP+4.
  */
-import { endsWithPhrase, isAlnumAt, isAsciiUpperAt, isBlankGap, isDigitAt, isLetterAt, runsOf, wordsBefore, type Run } from './text';
+import { endsWithPhrase, isAlnumAt, isAsciiUpperAt, isBlankGap, isDigitAt, isLetterAt, wordsBefore, type Run } from './text';
 import { match, type PrivacyMatch } from './types';
 
 const US_STATES = new Set([
@@ -53,8 +53,8 @@ function isCapitals(run: Run): boolean {
 
 /** Canadian postal code: A9A 9A9. */
 function isCanadian(a: Run, b: Run): boolean {
-  const s = (a.text + b.text).toUpperCase();
   if (a.text.length !== 3 || b.text.length !== 3) return false;
+  const s = (a.text + b.text).toUpperCase();
   for (let k = 0; k < 6; k++) {
     const wantsDigit = k % 2 === 1;
     if (wantsDigit !== isDigitAt(s, k)) return false;
@@ -87,16 +87,19 @@ function standsAlone(text: string, start: number, end: number): boolean {
   return true;
 }
 
-export function findPostalCodes(text: string): PrivacyMatch[] {
-  const runs = runsOf(text);
+/** Postal codes in `text`, whose runs are `runs`. */
+export function findPostalCodes(text: string, runs: readonly Run[]): PrivacyMatch[] {
   const out: PrivacyMatch[] = [];
+  // Each shape below reads the cue (`isPostcodeCue`) only once the run has that shape.
   for (let i = 0; i < runs.length; i++) {
     const a = runs[i]!;
+    // Every code starts with five digits (a ZIP) or with two to four letters and digits (`SW1A`, `K1A`).
+    if (a.kind === 'letters' || (a.kind === 'digits' ? a.text.length !== 5 : a.text.length > 4)) continue;
     const b = runs[i + 1];
     const gap = b ? text.slice(a.end, b.start) : '';
-    const cue = isPostcodeCue(text, a.start);
     // UK: outward, one blank, inward.
-    if (b && gap === ' ' && a.kind !== 'letters' && b.kind === 'mixed' && isUkOutward(a.text) && isUkInward(b.text) && standsAlone(text, a.start, b.end)) {
+    if (b && gap === ' ' && b.kind === 'mixed' && isUkOutward(a.text) && isUkInward(b.text) && standsAlone(text, a.start, b.end)) {
+      const cue = isPostcodeCue(text, a.start);
       if (cue !== null || (isCapitals(a) && isCapitals(b))) {
         out.push(match('postal-code', text, a.start, b.end, cue));
         i++;
@@ -104,14 +107,17 @@ export function findPostalCodes(text: string): PrivacyMatch[] {
       }
     }
     // Canadian, after a cue only.
-    if (cue !== null && b && isBlankGap(gap) && isCanadian(a, b) && standsAlone(text, a.start, b.end)) {
-      out.push(match('postal-code', text, a.start, b.end, cue));
-      i++;
-      continue;
+    if (b && isBlankGap(gap) && isCanadian(a, b) && standsAlone(text, a.start, b.end)) {
+      const cue = isPostcodeCue(text, a.start);
+      if (cue !== null) {
+        out.push(match('postal-code', text, a.start, b.end, cue));
+        i++;
+        continue;
+      }
     }
     // ZIP+4.
     if (isDigits(a, 5) && gap === '-' && isDigits(b, 4) && standsAlone(text, a.start, b!.end)) {
-      out.push(match('postal-code', text, a.start, b!.end, cue));
+      out.push(match('postal-code', text, a.start, b!.end, isPostcodeCue(text, a.start)));
       i++;
       continue;
     }
@@ -122,6 +128,7 @@ export function findPostalCodes(text: string): PrivacyMatch[] {
       const stateOk = state !== undefined && US_STATES.has(state.text) && isBlankGap(text.slice(state.end, a.start));
       const before = state && place ? text.slice(place.end, state.start) : '';
       const placeOk = place !== undefined && place.kind === 'letters' && before.startsWith(',') && isBlankGap(before.slice(1));
+      const cue = isPostcodeCue(text, a.start);
       if (cue !== null || (stateOk && placeOk)) out.push(match('postal-code', text, a.start, a.end, cue ?? state?.text ?? null));
     }
   }

@@ -9,15 +9,37 @@ import { findNames } from './names';
 import { findNumberIdentifiers } from './numbers';
 import { findPostalCodes } from './postal-codes';
 import { KIND_PRIORITY, type PrivacyMatch } from './types';
-import { NONE } from '../util/lists';
+import { runsOf } from './text';
+import { NONE, pushAll } from '../util/lists';
 
 /** Longer lines are scanned only up to this many characters (a note line is far shorter). */
 export const MAX_SCAN_LENGTH = 10_000;
 
 export function scan(text: string): readonly PrivacyMatch[] {
-  const input = text.length > MAX_SCAN_LENGTH ? text.slice(0, MAX_SCAN_LENGTH) : text;
-  if (!mayHoldIdentifier(input)) return NONE;
-  const all = [...findEmails(input), ...findDates(input), ...findNumberIdentifiers(input), ...findPostalCodes(input), ...findNames(input)];
+  return scanPart(text, 0, text.length);
+}
+
+/**
+ * `scan(source.slice(from, to))`, with spans in the slice. The slice is made only when the quick
+ * test lets it through: most free text of a note (`turned and settled`) is rejected unread.
+ */
+export function scanPart(source: string, from: number, to: number): readonly PrivacyMatch[] {
+  const end = Math.min(to, from + MAX_SCAN_LENGTH);
+  const digits = digitCount(source, from, end);
+  if (!mayHoldIdentifier(source, from, end, digits)) return NONE;
+  const input = from === 0 && end === source.length ? source : source.slice(from, end);
+  // The runs are read once for every detector. A detector runs only when the text has what each
+  // of its identifiers needs: dates a digit, phone and record numbers four (five in a group of
+  // digits, or four in a run with letters), postal codes two (`M1 1AE`), e-mail addresses an `@`.
+  // Names need a capital after a cue, which `findNames` looks for itself.
+  const runs = runsOf(input);
+  const all: PrivacyMatch[] = [];
+  if (input.includes('@')) pushAll(all, findEmails(input));
+  if (digits >= 1) pushAll(all, findDates(input, runs));
+  if (digits >= 4) pushAll(all, findNumberIdentifiers(input, runs));
+  if (digits >= 2) pushAll(all, findPostalCodes(input, runs));
+  pushAll(all, findNames(input, runs));
+  if (all.length === 0) return NONE;
   all.sort((a, b) => a.span.start - b.span.start || (b.span.end - b.span.start) - (a.span.end - a.span.start) || KIND_PRIORITY[b.kind] - KIND_PRIORITY[a.kind]);
   // Keep the best match of each overlapping cluster: a later match replaces the kept one only
   // when it is longer (or as long and of a higher priority).
@@ -35,6 +57,16 @@ export function scan(text: string): readonly PrivacyMatch[] {
   return kept;
 }
 
+/** How many ASCII digits `text[from, to)` holds (the only digits the detectors read). */
+function digitCount(text: string, from: number, to: number): number {
+  let digits = 0;
+  for (let i = from; i < to; i++) {
+    const c = text.charCodeAt(i);
+    if (c >= 0x30 && c <= 0x39) digits++;
+  }
+  return digits;
+}
+
 /** Full month names that count in lower case (see dates.ts). */
 const LOWER_CASE_MONTHS = ['january', 'february', 'april', 'june', 'july', 'september', 'october', 'november', 'december'];
 
@@ -45,17 +77,23 @@ const LOWER_CASE_CUES = ['post', 'zip', 'addr'];
  * A quick test that skips most clinical text: every identifier needs an `@`, a capital (names,
  * postcodes, capitalised months, cues such as `DOB` or `MRN` are often capitalised), four digits
  * or more (phone, record and numeric dates, birth years), a day with a month name in lower case,
- * or a postcode cue.
+ * or a postcode cue. Reads `text[from, to)`, which holds `digits` digits.
  */
-function mayHoldIdentifier(text: string): boolean {
-  let digits = 0;
-  for (let i = 0; i < text.length; i++) {
+function mayHoldIdentifier(text: string, from: number, to: number, digits: number): boolean {
+  for (let i = from; i < to; i++) {
     const c = text.charCodeAt(i);
-    if (c >= 0x30 && c <= 0x39) digits++;
-    else if (c === 0x40 || (c >= 0x41 && c <= 0x5a) || c > 0x7f) return true;
+    if (c === 0x40 || (c >= 0x41 && c <= 0x5a) || c > 0x7f) return true;
   }
   if (digits >= 4) return true;
   if (digits === 0) return false;
-  const lower = text.toLowerCase();
-  return LOWER_CASE_MONTHS.some((m) => lower.includes(m)) || LOWER_CASE_CUES.some((w) => lower.includes(w));
+  // Without a capital or any character beyond ASCII the text is in lower case already.
+  for (const word of LOWER_CASE_MONTHS) if (occursIn(text, word, from, to)) return true;
+  for (const word of LOWER_CASE_CUES) if (occursIn(text, word, from, to)) return true;
+  return false;
+}
+
+/** Whether `word` occurs within `text[from, to)`. */
+function occursIn(text: string, word: string, from: number, to: number): boolean {
+  const at = text.indexOf(word, from);
+  return at >= 0 && at + word.length <= to;
 }

@@ -27,7 +27,11 @@ export function isLetterChar(ch: string): boolean {
 }
 
 export function isLetterAt(text: string, i: number): boolean {
-  return i >= 0 && i < text.length && isLetterChar(text.charAt(i));
+  if (i < 0 || i >= text.length) return false;
+  const c = text.charCodeAt(i);
+  // ASCII without making a one-character string: every run of every scanned text comes here.
+  if (c < 0x80) return (c >= 0x41 && c <= 0x5a) || (c >= 0x61 && c <= 0x7a);
+  return isLetterChar(text.charAt(i));
 }
 
 export function isUpperChar(ch: string): boolean {
@@ -47,8 +51,23 @@ export function isAsciiUpperAt(text: string, i: number): boolean {
   return c >= 0x41 && c <= 0x5a;
 }
 
+export function isAsciiLowerAt(text: string, i: number): boolean {
+  const c = text.charCodeAt(i);
+  return c >= 0x61 && c <= 0x7a;
+}
+
 export function isAlnumAt(text: string, i: number): boolean {
-  return i >= 0 && i < text.length && (isDigitAt(text, i) || isLetterAt(text, i));
+  return isDigitAt(text, i) || isLetterAt(text, i);
+}
+
+/**
+ * Whether the character at `i` may be an upper-case letter: an ASCII capital, or any character
+ * beyond ASCII (`isUpperChar` decides those). Every name starts with one, so a text without
+ * one after a cue holds no name (see `findNames`).
+ */
+export function mayBeUpperAt(text: string, i: number): boolean {
+  const c = text.charCodeAt(i);
+  return (c >= 0x41 && c <= 0x5a) || c > 0x7f;
 }
 
 /** Splits text into runs of letters and digits (everything else separates them). */
