@@ -31,9 +31,20 @@ export async function activate(context: vscode.ExtensionContext): Promise<void> 
     const c = client;
     return c && c.isRunning() ? (method, params) => c.sendRequest(method, params) : null;
   };
-  const trends = new TrendView(context.extensionUri, send);
+  // Settles when the first start of the server has succeeded or failed.
+  let firstStart: Promise<unknown> = Promise.resolve();
+  // The trend view may ask before then (a view restored after a reload): it waits for the start.
+  const trends = new TrendView(context.extensionUri, async () => {
+    await firstStart;
+    return send();
+  });
   const status = new TimepointStatus(send);
   context.subscriptions.push(status, trends);
+  // Registered before the server is started: VS Code hands a trend view restored after a reload
+  // (which is what woke the extension up when it was the only editor left open) to the
+  // serializer at once, so the view shows its page and opens its note for the server instead of
+  // staying blank while the server starts (or for good, should the start never end).
+  context.subscriptions.push(vscode.window.registerWebviewPanelSerializer(TREND_VIEW_TYPE, trends));
 
   context.subscriptions.push(
     vscode.commands.registerCommand('pneumark.restartServer', () => restartServer(client, crashes, output)),
@@ -48,8 +59,10 @@ export async function activate(context: vscode.ExtensionContext): Promise<void> 
     trends.noteAnalysed(p.uri);
     status.noteAnalysed(p.uri);
   });
+  const started = client.start();
+  firstStart = started.catch(() => undefined);
   try {
-    await client.start();
+    await started;
   } catch (error) {
     output.error(`the language server could not be started: ${error instanceof Error ? error.message : String(error)}`);
     void vscode.window.showErrorMessage('The Pneumark language server could not be started, so notes are not checked.', 'Restart', 'Show Output').then((choice) => {
@@ -57,9 +70,6 @@ export async function activate(context: vscode.ExtensionContext): Promise<void> 
       if (choice === 'Show Output') output.show();
     });
   }
-  // A trend view restored after a reload asks the server for its note at once: it is handed
-  // over once the server runs (VS Code keeps the panel waiting until then).
-  context.subscriptions.push(vscode.window.registerWebviewPanelSerializer(TREND_VIEW_TYPE, trends));
   status.schedule();
 }
 

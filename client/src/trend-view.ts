@@ -30,7 +30,11 @@ export class TrendView implements vscode.Disposable, vscode.WebviewPanelSerializ
   private generation = 0;
   private readonly disposables: vscode.Disposable[] = [];
 
-  constructor(private readonly extensionUri: vscode.Uri, private readonly send: () => Requester | null, private readonly refreshDelayMs = 150) {
+  /**
+   * `send` gives the way to the server, or null when it is not running; it may first wait for
+   * the server to start (after a reload of the window the view is restored before it runs).
+   */
+  constructor(private readonly extensionUri: vscode.Uri, private readonly send: () => Requester | null | Promise<Requester | null>, private readonly refreshDelayMs = 150) {
     this.disposables.push(
       vscode.window.onDidChangeActiveTextEditor((editor) => {
         if (this.panel && editor && editor.document.languageId === LANGUAGE && editor.document.uri.toString() !== this.uri?.toString()) this.follow(editor.document);
@@ -182,7 +186,8 @@ export class TrendView implements vscode.Disposable, vscode.WebviewPanelSerializ
       }
       if (generation !== this.generation) return;
     }
-    const send = this.send();
+    const send = await this.send();
+    if (generation !== this.generation) return;
     if (!send) {
       await this.post({ type: 'error', message: 'the Pneumark language server is not running (run "Pneumark: Restart Language Server")' });
       return;

@@ -1,12 +1,12 @@
 // The extension's activation as a whole, with stand-ins for VS Code (fake-vscode.ts) and the
 // language client: a server that cannot start, shutting down, what is handed to the client.
 import { beforeEach, describe, expect, it, vi } from 'vitest';
-import { resetFake, state, Uri } from './fake-vscode';
+import { FakeWebviewPanel, resetFake, state, Uri } from './fake-vscode';
 
 vi.mock('vscode', async () => (await import('./fake-vscode')).vscodeModule);
 
 /** The language client as the extension uses it; `behaviour` sets how start and stop go. */
-const behaviour = { startFails: false, stopFails: false };
+const behaviour = { startFails: false, stopFails: false, startsWhen: null as Promise<void> | null };
 const clients: FakeClient[] = [];
 class FakeClient {
   running = false;
@@ -16,7 +16,10 @@ class FakeClient {
     this.options = options;
     clients.push(this);
   }
+  /** The requests sent, by method and note. */
+  readonly requests: { method: string; uri: unknown }[] = [];
   async start(): Promise<void> {
+    if (behaviour.startsWhen) await behaviour.startsWhen;
     if (behaviour.startFails) throw new Error('spawn node ENOENT');
     this.running = true;
   }
@@ -27,7 +30,12 @@ class FakeClient {
   async restart(): Promise<void> { await this.stop(); await this.start(); }
   isRunning(): boolean { return this.running; }
   onNotification(method: string, handler: (params: unknown) => void): void { this.notifications.set(method, handler); }
-  async sendRequest(): Promise<null> { return null; }
+  /** A server that knows no note but answers for the trends of any (one timepoint). */
+  async sendRequest(method: string, params: { uri?: unknown }): Promise<unknown> {
+    this.requests.push({ method, uri: params?.uri });
+    if (method !== 'pneumark/trends') return null;
+    return { uri: params.uri, version: 1, points: [{ timepoint: 0, label: 'start', line: 0, minutes: 480, values: { pao2: { value: 70, unit: 'mmHg' } }, carried: [] }] };
+  }
 }
 vi.mock('vscode-languageclient/node', () => ({
   LanguageClient: FakeClient,
@@ -47,6 +55,7 @@ beforeEach(() => {
   clients.length = 0;
   behaviour.startFails = false;
   behaviour.stopFails = false;
+  behaviour.startsWhen = null;
 });
 
 describe('activation', () => {
@@ -60,6 +69,47 @@ describe('activation', () => {
     // Shutting down a client that never started does not fail.
     behaviour.stopFails = true;
     await expect(deactivate()).resolves.toBeUndefined();
+  });
+
+  it('takes back a trend view restored after a reload at once, and gives it its note once the server runs', async () => {
+    // Reloaded with only the trend view open: VS Code wakes the extension up for the view, and
+    // hands the view over as soon as a serializer is registered, while the server still starts.
+    let started!: () => void;
+    behaviour.startsWhen = new Promise<void>((resolve) => { started = resolve; });
+    state.files.set('file:///work/a.pneu', '@ 08:00\nabg 7.30/40/70/24');
+    const activation = activate(context() as never);
+    const serializer = state.serializers.get('pneumark.trends') as { deserializeWebviewPanel(panel: unknown, state: unknown): Promise<void> } | undefined;
+    expect(serializer, 'registered before the server has started').toBeDefined();
+    const restored = new FakeWebviewPanel('pneumark.trends', 'Trends: a.pneu', {});
+    await serializer!.deserializeWebviewPanel(restored, { uri: 'file:///work/a.pneu' });
+    // The page is there (waiting for the analysis), and the note is opened for the server.
+    expect(restored.webview.html).toMatch(/Waiting for the note's analysis/);
+    await vi.waitFor(() => expect(state.documents.map((d) => d.uri.toString())).toEqual(['file:///work/a.pneu']));
+    // While the server starts, nothing is asked of it and no error is shown: the view waits.
+    await new Promise((r) => setTimeout(r, 20));
+    expect(clients[0]!.requests).toEqual([]);
+    expect(restored.posted).toEqual([]);
+    started();
+    await activation;
+    await vi.waitFor(() => expect(restored.postedOf('trends')).toHaveLength(1));
+    expect(restored.postedOf('trends')[0]).toMatchObject({ uri: 'file:///work/a.pneu', note: 'a.pneu', closed: false, points: [{ values: { pao2: { value: 70, unit: 'mmHg' } } }] });
+    expect(restored.postedOf('error')).toEqual([]);
+    await deactivate();
+  });
+
+  it('tells a restored trend view when the server could not start, with what to do', async () => {
+    let started!: () => void;
+    behaviour.startsWhen = new Promise<void>((resolve) => { started = resolve; });
+    behaviour.startFails = true;
+    state.files.set('file:///work/a.pneu', '@ 08:00');
+    const activation = activate(context() as never);
+    const serializer = state.serializers.get('pneumark.trends') as { deserializeWebviewPanel(panel: unknown, state: unknown): Promise<void> };
+    const restored = new FakeWebviewPanel('pneumark.trends', 'Trends: a.pneu', {});
+    await serializer.deserializeWebviewPanel(restored, { uri: 'file:///work/a.pneu' });
+    started();
+    await activation;
+    await vi.waitFor(() => expect(restored.postedOf('error')).toEqual([{ type: 'error', message: 'the Pneumark language server is not running (run "Pneumark: Restart Language Server")' }]));
+    await deactivate();
   });
 
   it('passes the trace channel and the settings filter to the language client', async () => {
