@@ -160,6 +160,31 @@ describe('Pneumark in VS Code', () => {
     await screenshot(wb.page, '12-trends-after-reload');
   });
 
+  it('comes back alone with its note\'s trends after a reload with the note closed', async () => {
+    // Only the trend view is left open: no Pneumark note comes back with the window, so nothing
+    // but the trend view itself can wake the extension up after the reload.
+    await expect.poll(async () => (await texts('#title')).join(), { timeout: 30000 }).toMatch(/icu-ventilated-lung-injury\.pneu/);
+    await closeAllButTrends('icu-ventilated-lung-injury.pneu');
+    await expect.poll(async () => (await texts('#title')).join(), { timeout: 30000 }).toMatch(/icu-ventilated-lung-injury\.pneu/);
+    const loaded = wb.page.waitForEvent('load', { timeout: 60000 });
+    await runCommand(wb.page, 'Developer: Reload Window');
+    await loaded;
+    await wb.page.locator('.monaco-workbench').waitFor({ timeout: 60000 });
+    await wb.page.locator('.tab[aria-label^="Trends"]').first().waitFor({ timeout: 60000 });
+    try {
+      await expect.poll(async () => (await texts('#title')).join(), { timeout: 90000 }).toMatch(/icu-ventilated-lung-injury\.pneu/);
+      await expect.poll(canvases, { timeout: 60000 }).toBeGreaterThanOrEqual(4);
+      // The note's own data (read from disk for the view), not a notice: one row per timepoint.
+      await expect.poll(async () => (await texts('button.go')).length, { timeout: 30000 }).toBe(4);
+    } catch (error) {
+      await screenshot(wb.page, 'failed-15-trends-alone-after-reload');
+      throw error;
+    }
+    // The view reads its note without opening an editor for it.
+    expect(await editorTabs()).toEqual([]);
+    await screenshot(wb.page, '15-trends-alone-after-reload');
+  });
+
   it('opens the bundled check documentation at the check picked', async () => {
     await openFile(wb.page, 'icu-ventilated-lung-injury.pneu');
     await runCommand(wb.page, 'Pneumark: Open Check Documentation…');
@@ -219,6 +244,32 @@ async function panelNames(): Promise<string[]> {
     for (const panel of await frame.locator('section.panel').all().catch(() => [])) out.push((await panel.getAttribute('aria-label').catch(() => null)) ?? '');
   }
   return out;
+}
+
+/** The names of the editor tabs other than the trend view's. */
+async function editorTabs(): Promise<string[]> {
+  const out: string[] = [];
+  for (const tab of await wb.page.locator('.tabs-container .tab:not([aria-label^="Trends"])').all()) out.push((await tab.getAttribute('aria-label')) ?? '');
+  return out;
+}
+
+/**
+ * Closes every editor but the trend view, one at a time as a user would (unsaved changes an
+ * earlier test made are thrown away: "Revert and Close Editor"), the note `last` last: the view
+ * follows the note that becomes active as the others close, so it ends on that one.
+ */
+async function closeAllButTrends(last: string): Promise<void> {
+  for (let left = await editorTabs(); left.length > 0; left = await editorTabs()) {
+    const others = wb.page.locator(`.tabs-container .tab:not([aria-label^="Trends"]):not([aria-label*="${last}"])`);
+    const tab = (await others.count()) > 0 ? others.first() : wb.page.locator('.tabs-container .tab:not([aria-label^="Trends"])').first();
+    const label = (await tab.getAttribute('aria-label')) ?? '';
+    await tab.click();
+    // The command acts on the active editor: wait until it is this one, in the active group.
+    await wb.page.locator(`.editor-group-container.active .tab.active[aria-label="${label.replace(/["\\]/g, '\\$&')}"]`).first().waitFor({ timeout: 15000 });
+    await runCommand(wb.page, 'View: Revert and Close Editor');
+    await expect.poll(async () => (await editorTabs()).length, { timeout: 15000 }).toBe(left.length - 1);
+  }
+  await wb.page.locator('.tabs-container .tab[aria-label^="Trends"]').first().waitFor({ timeout: 15000 });
 }
 
 /** The frame that holds an element (the trend view's page is a frame in a frame). */
