@@ -39,7 +39,7 @@ describe('readClientSettings', () => {
 describe('names in disabledChecks that are no check', () => {
   it('are found case-insensitively, each once, with the check they likely meant', () => {
     expect(unknownCheckNames(['PN302', 'pn302', 'Unusual-Value', 'decimal-comma'])).toEqual([]);
-    expect(unknownCheckNames(['PN320', 'pn320', 'unusal-value', 'PN 101', 'pn-410', '302', 'PN999999', 'zz'])).toEqual([
+    expect(unknownCheckNames(['PN320', 'pn320', 'unusal-value', 'PN 101', 'pn-410', '302', 'PN999999', 'PN30', 'zz'])).toEqual([
       // One edit from two codes (a swap of neighbours counts as one): both are named.
       { name: 'PN320', likely: ['PN302 (unusual-value)', 'PN310 (flow-on-room-air)'] },
       { name: 'unusal-value', likely: ['unusual-value (PN302)'] },
@@ -48,6 +48,8 @@ describe('names in disabledChecks that are no check', () => {
       { name: 'pn-410', likely: ['PN410 (oxygenation-reading)'] },
       { name: '302', likely: ['PN302 (unusual-value)'] },
       { name: 'PN999999', likely: [] },
+      // One edit from PN301 to PN309: none is more likely than another.
+      { name: 'PN30', likely: [] },
       { name: 'zz', likely: [] },
     ]);
   });

@@ -120,7 +120,8 @@ export interface UnknownCheckName {
  * order written), with the checks they likely meant: the same code written with a space, hyphen
  * or without its `PN` (`PN 302`, `pn-302`, `302`), else the codes and aliases at the fewest edits
  * (one or two; one for names of three letters or fewer; a swap of two neighbours counts as one:
- * `PN320` is one edit from both PN302 and PN310), at most three.
+ * `PN320` is one edit from both PN302 and PN310), when there are at most three (`PN30` is one
+ * edit from nine codes, and names none).
  */
 export function unknownCheckNames(names: readonly string[]): UnknownCheckName[] {
   const out: UnknownCheckName[] = [];
@@ -150,7 +151,8 @@ function likelyChecks(lower: string): string[] {
     const shown = toAlias < toCode ? `${c.alias} (${c.code})` : `${c.code} (${c.alias})`;
     if (d < best) { best = d; found = [shown]; } else found.push(shown);
   }
-  return found.slice(0, 3);
+  // More than three as near: naming some of them would be a guess.
+  return found.length <= 3 ? found : [];
 }
 
 /**
