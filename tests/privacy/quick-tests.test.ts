@@ -17,6 +17,9 @@ describe('the smallest text each detector needs', () => {
   it('a date with one digit, in lower case (no capital lets it through)', () => {
     expect(found('june 4')).toEqual([['calendar-date', 'june 4', null]]);
     expect(found('4th of june')).toEqual([['calendar-date', '4th of june', null]]);
+    for (const month of ['january', 'february', 'april', 'july', 'september', 'october', 'november', 'december']) {
+      expect(found(`${month} 4`)).toEqual([['calendar-date', `${month} 4`, null]]);
+    }
     expect(found('born 1961')).toEqual([['birth-date', '1961', 'born']]);
   });
 
@@ -45,6 +48,14 @@ describe('the smallest text each detector needs', () => {
 
   it('a postal code with two digits, in lower case after a cue and in capitals alone', () => {
     expect(found('postcode m1 1ae')).toEqual([['postal-code', 'm1 1ae', 'postcode']]);
+    // Every cue word lets a text in lower case with fewer than four digits through.
+    expect(found('post code m1 1ae')).toEqual([['postal-code', 'm1 1ae', 'post code']]);
+    expect(found('postal code m1 1ae')).toEqual([['postal-code', 'm1 1ae', 'postal code']]);
+    expect(found('zip code m1 1ae')).toEqual([['postal-code', 'm1 1ae', 'zip code']]);
+    expect(found('zipcode m1 1ae')).toEqual([['postal-code', 'm1 1ae', 'zipcode']]);
+    expect(found('zip m1 1ae')).toEqual([['postal-code', 'm1 1ae', 'zip']]);
+    expect(found('addr m1 1ae')).toEqual([['postal-code', 'm1 1ae', 'addr']]);
+    expect(found('signpost m1 1ae')).toEqual([]);
     expect(found('M1 1AE')).toEqual([['postal-code', 'M1 1AE', null]]);
     expect(found('SW1A 1AA')).toEqual([['postal-code', 'SW1A 1AA', null]]);
     expect(found('address k1a 0b1')).toEqual([['postal-code', 'k1a 0b1', 'address']]);

@@ -61,7 +61,9 @@ function maskReadings(text: string, bodyEnd: number, node: Extract<LineNode, { k
   // Common case: nothing but the section word, readings, blanks, commas and slashes.
   let at = node.sectionToken.span.end;
   let free = false;
-  for (const item of node.items) {
+  const items = node.items;
+  for (let k = 0; k < items.length; k++) {
+    const item = items[k]!;
     if (!isReading(item)) continue;
     const span = item.span;
     if (hasFreeText(text, at, Math.min(span.start, bodyEnd))) { free = true; break; }
@@ -86,10 +88,10 @@ function maskReadings(text: string, bodyEnd: number, node: Extract<LineNode, { k
 function isReading(item: ItemNode): boolean {
   const kind = item.valueKind;
   if (kind === null) return false;
-  if (item.implied !== null && kind !== 'word') return true;
   const field = item.field;
-  if (!field) return false;
-  return kind !== 'word' || field.words?.[item.value!.text.toLowerCase()] !== undefined;
+  // A number or a pair: under a known key, or an implied one (a shorthand gas part).
+  if (kind !== 'word') return field !== null || item.implied !== null;
+  return field !== null && field.words?.[item.value!.text.toLowerCase()] !== undefined;
 }
 
 /** Whether `text[from, to)` holds anything but blanks, commas and slashes (the slashes of a shorthand gas). */

@@ -9,7 +9,7 @@ import { findNames } from './names';
 import { findNumberIdentifiers } from './numbers';
 import { findPostalCodes } from './postal-codes';
 import { KIND_PRIORITY, type PrivacyMatch } from './types';
-import { runsOf } from './text';
+import { isAsciiLowerAt, runsOf } from './text';
 import { NONE, pushAll } from '../util/lists';
 
 /** Longer lines are scanned only up to this many characters (a note line is far shorter). */
@@ -25,8 +25,18 @@ export function scan(text: string): readonly PrivacyMatch[] {
  */
 export function scanPart(source: string, from: number, to: number): readonly PrivacyMatch[] {
   const end = Math.min(to, from + MAX_SCAN_LENGTH);
-  const digits = digitCount(source, from, end);
-  if (!mayHoldIdentifier(source, from, end, digits)) return NONE;
+  // A quick test that skips most clinical text: every identifier needs an `@`, a capital (names,
+  // postcodes, capitalised months, cues such as `DOB` or `MRN` are often capitalised), four digits
+  // or more (phone, record and numeric dates, birth years), a day with a month name in lower case,
+  // or a postcode cue.
+  let digits = 0;
+  let marked = false;
+  for (let i = from; i < end; i++) {
+    const c = source.charCodeAt(i);
+    if (c >= 0x30 && c <= 0x39) digits++;
+    else if (c === 0x40 || (c >= 0x41 && c <= 0x5a) || c > 0x7f) marked = true;
+  }
+  if (!marked && digits < 4 && (digits === 0 || !hasLowerCaseCueWord(source, from, end))) return NONE;
   const input = from === 0 && end === source.length ? source : source.slice(from, end);
   // The runs are read once for every detector. A detector runs only when the text has what each
   // of its identifiers needs: dates a digit, phone and record numbers four (five in a group of
@@ -57,43 +67,32 @@ export function scanPart(source: string, from: number, to: number): readonly Pri
   return kept;
 }
 
-/** How many ASCII digits `text[from, to)` holds (the only digits the detectors read). */
-function digitCount(text: string, from: number, to: number): number {
-  let digits = 0;
-  for (let i = from; i < to; i++) {
-    const c = text.charCodeAt(i);
-    if (c >= 0x30 && c <= 0x39) digits++;
-  }
-  return digits;
-}
-
-/** Full month names that count in lower case (see dates.ts). */
-const LOWER_CASE_MONTHS = ['january', 'february', 'april', 'june', 'july', 'september', 'october', 'november', 'december'];
-
-/** Cues after which a code in lower case counts (`postcode m1 1ae`, `zip 90210`). */
-const LOWER_CASE_CUES = ['post', 'zip', 'addr'];
+/**
+ * The words in lower case that let a text with one to three digits and no capital through: the
+ * full month names that count in lower case (see dates.ts: `june 4`) and the words of the
+ * postcode cues (see postal-codes.ts: `postcode m1 1ae`). Each must stand as a word of its own.
+ */
+const LOWER_CASE_CUE_WORDS: ReadonlySet<string> = new Set([
+  'january', 'february', 'april', 'june', 'july', 'september', 'october', 'november', 'december',
+  'post', 'postal', 'postcode', 'zip', 'zipcode', 'address', 'addr',
+]);
+const CUE_WORD_INITIALS = new Set([...LOWER_CASE_CUE_WORDS].map((word) => word.charCodeAt(0)));
+const CUE_WORD_MIN_LENGTH = Math.min(...[...LOWER_CASE_CUE_WORDS].map((word) => word.length));
+const CUE_WORD_MAX_LENGTH = Math.max(...[...LOWER_CASE_CUE_WORDS].map((word) => word.length));
 
 /**
- * A quick test that skips most clinical text: every identifier needs an `@`, a capital (names,
- * postcodes, capitalised months, cues such as `DOB` or `MRN` are often capitalised), four digits
- * or more (phone, record and numeric dates, birth years), a day with a month name in lower case,
- * or a postcode cue. Reads `text[from, to)`, which holds `digits` digits.
+ * Whether `text[from, to)`, which is in lower-case ASCII, holds one of `LOWER_CASE_CUE_WORDS` as a
+ * word (a stretch of letters between non-letters). Only words of the right length and initial
+ * are copied to be looked up.
  */
-function mayHoldIdentifier(text: string, from: number, to: number, digits: number): boolean {
-  for (let i = from; i < to; i++) {
-    const c = text.charCodeAt(i);
-    if (c === 0x40 || (c >= 0x41 && c <= 0x5a) || c > 0x7f) return true;
+function hasLowerCaseCueWord(text: string, from: number, to: number): boolean {
+  let i = from;
+  while (i < to) {
+    if (!isAsciiLowerAt(text, i)) { i++; continue; }
+    const start = i;
+    while (i < to && isAsciiLowerAt(text, i)) i++;
+    const length = i - start;
+    if (length >= CUE_WORD_MIN_LENGTH && length <= CUE_WORD_MAX_LENGTH && CUE_WORD_INITIALS.has(text.charCodeAt(start)) && LOWER_CASE_CUE_WORDS.has(text.slice(start, i))) return true;
   }
-  if (digits >= 4) return true;
-  if (digits === 0) return false;
-  // Without a capital or any character beyond ASCII the text is in lower case already.
-  for (const word of LOWER_CASE_MONTHS) if (occursIn(text, word, from, to)) return true;
-  for (const word of LOWER_CASE_CUES) if (occursIn(text, word, from, to)) return true;
   return false;
-}
-
-/** Whether `word` occurs within `text[from, to)`. */
-function occursIn(text: string, word: string, from: number, to: number): boolean {
-  const at = text.indexOf(word, from);
-  return at >= 0 && at + word.length <= to;
 }
