@@ -12,7 +12,8 @@ const plain = (d: ReturnType<ReturnType<typeof checkNote>['analysis']['derivatio
   derived: d.derived.map((v) => ({ ...v, substituted: v.substituted })),
   missing: d.missing,
   notApplicable: d.notApplicable,
-  interpretations: d.interpretations,
+  // A reading's text is phrased on first read (a getter): compared as read.
+  interpretations: d.interpretations.map((i) => ({ topic: i.topic, text: i.text, basis: i.basis, line: i.line, notable: i.notable })),
 });
 
 const samples = ['icu-ventilated-lung-injury', 'summit-hut-evacuation', 'home-oxygen-exacerbation'].map((n) => readFileSync(`samples/${n}.pneu`, 'utf8'));
@@ -41,7 +42,7 @@ describe('derivations on demand', () => {
           const readingsFirst = analysis.derivation(tp.index);
           const readings = readingsFirst.interpretations;
           expect(plain(readingsFirst)).toEqual(whole);
-          expect(readings).toEqual(whole.interpretations);
+          expect(readings.map((i) => i.text)).toEqual(whole.interpretations.map((i) => i.text));
         }
       }),
       { numRuns: 300 },

@@ -13,8 +13,12 @@ function interpretationCheck(code: string, alias: string, title: string, topics:
   return defineCheck({
     code, alias, title, severity: 'information', tags: ['interpretation'], doc, source,
     runTimepoint(ctx) {
-      for (const i of ctx.derivation.interpretations) {
-        if (!topics.includes(i.topic) || !i.notable || i.line === null) continue;
+      // Indexed: most timepoints have no readings (a shared empty list), and a `for…of` over lists
+      // of two kinds is left unoptimised, making an iterator at every timepoint.
+      const readings = ctx.derivation.interpretations;
+      for (let k = 0; k < readings.length; k++) {
+        const i = readings[k]!;
+        if (!i.notable || i.line === null || !topics.includes(i.topic)) continue;
         ctx.report({ range: readingRange(ctx, i.line), message: i.text });
       }
     },

@@ -47,7 +47,9 @@ const CLASSIFICATION: Kept<AcidBaseClassification | null, DeriveContext> = {
     const paco2 = c.field('paco2');
     const hco3 = c.field('hco3');
     if (!ph || !paco2 || !hco3) return null;
-    const gap = c.derived('anion_gap_albumin_corrected') ?? c.derived('anion_gap');
+    // The anion gap needs a sodium and a chloride: without them (most gases) neither it nor its
+    // correction for albumin is worked out for the classification (nor what each lacks).
+    const gap = c.field('na') !== null && c.field('cl') !== null ? c.derivedValue('anion_gap_albumin_corrected') ?? c.derivedValue('anion_gap') : null;
     // The delta ratio takes the bicarbonate the gap was computed with (serum when the laboratory gave it).
     return classifyAcidBase({ ph: ph.value, paco2Mmhg: paco2.value, hco3MmolL: hco3.value, anionGapMmolL: gap?.value, gapHco3MmolL: gap ? bicarbonate(c)?.value : undefined, paco2ResolutionMmhg: c.writtenResolutionMmhg('paco2') });
   },

@@ -105,6 +105,11 @@ export class DeriveContext {
   private terms: SmallStore<string, Term> | null = null;
   /** Inputs read so far (null: not in force). A read of the values in force builds the value. */
   private inputs: SmallStore<string, InputValue | null> | null = null;
+  /**
+   * Whether a field is stated here, by field, as asked so far: every definition asks about its
+   * anchors, and each question searches the timepoint's stated values and settings held.
+   */
+  private here: SmallStore<string, boolean> | null = null;
 
   constructor(
     readonly timepoint: Timepoint,
@@ -163,20 +168,24 @@ export class DeriveContext {
 
   /** Whether a field is stated at this timepoint (not carried). */
   statedHere(id: string): boolean {
+    const here = (this.here ??= new SmallStore());
+    const known = here.get(id);
+    if (known !== undefined) return known;
     // Asked of the values in force without building the value (most fields asked about are never read).
-    return this.timepoint.values.originOf(id) === 'here';
+    const answer = this.timepoint.values.originOf(id) === 'here';
+    here.set(id, answer);
+    return answer;
   }
 
   /** Another derived value, computed once; null when it cannot be computed here. */
   derived(id: string, name?: string): Term | null {
-    const d = this.derivedValue(id);
-    if (!d) return null;
-    return { name: name ?? d.short, value: d.value, unit: d.unit, decimals: d.decimals, origin: { kind: 'derived', id } };
+    const d = this.evaluate(id);
+    return d instanceof ComputedValue ? d.term(name ?? d.short) : null;
   }
 
   derivedValue(id: string): DerivedValue | null {
     const r = this.evaluate(id);
-    return r && 'value' in r ? r : null;
+    return r instanceof ComputedValue ? r : null;
   }
 
   evaluate(id: string): Evaluated {
@@ -322,13 +331,44 @@ function evaluateDef(def: DerivedDefinition, c: DeriveContext): DerivedValue | M
   }
   if (outcome.kind === 'missing') {
     if (outcome.needs.length === 0) return null;
-    return { id: def.id, label: def.label, needs: outcome.needs, message: `add ${wordList(outcome.needs)} to get ${def.short}`, line };
+    return new Missing(def, outcome.needs, line);
   }
   if (outcome.kind === 'na') return { id: def.id, label: def.label, reason: outcome.reason, line };
   return new ComputedValue(def, outcome, usesCarried(outcome.terms, c), line);
 }
 
 type ValueOutcome = Extract<Outcome, { kind: 'value' }>;
+
+/**
+ * A derived value that cannot be computed here, and what to add to get it. Its message is built
+ * on first read: most are asked for by another value or a reading (the anion gap by every gas)
+ * and never shown.
+ */
+class Missing implements MissingValue {
+  readonly id: string;
+  readonly label: string;
+  readonly needs: readonly string[];
+  readonly line: number | null;
+  readonly #short: string;
+  #message: string | null = null;
+
+  constructor(def: DerivedDefinition, needs: readonly string[], line: number | null) {
+    this.id = def.id;
+    this.label = def.label;
+    this.needs = needs;
+    this.line = line;
+    this.#short = def.short;
+  }
+
+  get message(): string {
+    return (this.#message ??= `add ${wordList(this.needs)} to get ${this.#short}`);
+  }
+
+  /** As JSON, the message is written as a field was (a getter is not an own property). */
+  toJSON(): MissingValue {
+    return { id: this.id, label: this.label, needs: this.needs, message: this.message, line: this.line };
+  }
+}
 
 /**
  * A computed derived value. The formula with its numbers put in is built on first read: most
@@ -353,6 +393,8 @@ class ComputedValue implements DerivedValue {
   readonly template: string;
   // An ES private field: not an own property, so comparing two values ignores whether it was built.
   #shown: string | null = null;
+  /** This value as an input of other formulas (`term`), under its short name usually. */
+  #term: Term | null = null;
 
   constructor(def: DerivedDefinition, outcome: ValueOutcome, carried: boolean, line: number | null) {
     this.id = def.id;
@@ -371,6 +413,15 @@ class ComputedValue implements DerivedValue {
     this.usesCarried = carried;
     this.line = line;
     this.template = outcome.formula ?? def.formula;
+  }
+
+  /** This value as an input of another formula, named `name`: one object for the name most asked for. */
+  term(name: string): Term {
+    const known = this.#term;
+    if (known !== null && known.name === name) return known;
+    const term: Term = { name, value: this.value, unit: this.unit, decimals: this.decimals, origin: { kind: 'derived', id: this.id } };
+    if (known === null) this.#term = term;
+    return term;
   }
 
   get substituted(): string {

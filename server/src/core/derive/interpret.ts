@@ -4,7 +4,7 @@
  * settings (hypoxaemia PaO2 < 60 mmHg and hypercapnia PaCO2 > 50 mmHg by default, common
  * practice). Grades and cut-offs not taken from settings are named below with their source.
  */
-import { ANION_GAP_UPPER_NORMAL_MMOL_L, BERLIN_BAND_SEVERITY, HCO3_CENTRE_MMOL_L, HCO3_NORMAL_MMOL_L, PACO2_NORMAL_MMHG, PH_NORMAL, berlinOxygenationBand, type AcidBaseClassification, type AcidBaseDisorder } from '../physiology';
+import { ANION_GAP_UPPER_NORMAL_MMOL_L, BERLIN_BAND_SEVERITY, HCO3_CENTRE_MMOL_L, HCO3_NORMAL_MMOL_L, PACO2_NORMAL_MMHG, PH_NORMAL, berlinOxygenationBand, type AcidBaseClassification, type AcidBaseDisorder, type BerlinOxygenationBand } from '../physiology';
 import { sideOf } from '../physiology/numeric';
 import { MMHG_PER_KPA } from '../physiology/units';
 import type { Settings } from '../settings';
@@ -13,7 +13,8 @@ import { KPA_DECIMALS, kpaFromMmhg, kpaNumber, showsKpa } from '../present';
 import { classification } from './acid-base';
 import { isAboveAlveolar } from './gas-exchange';
 import type { DeriveContext, Term } from './context';
-import type { Interpretation } from './model';
+import type { DerivedValue, Interpretation, InterpretationTopic } from './model';
+import { NONE } from '../util/lists';
 
 /** PaO2 below this (mmHg) grades hypoxaemia as severe (common practice, no source). */
 export const SEVERE_HYPOXAEMIA_MMHG = 40;
@@ -91,153 +92,356 @@ class GasWords {
   }
 }
 
+/** The two ways readings write gas pressures, shared by every gas. */
+const GAS_MMHG = new GasWords(false);
+const GAS_KPA = new GasWords(true);
+
 /** The kPa decimals a value was written with, from its resolution (`writtenResolutionMmhg`); at least one. */
 function kpaDecimalsOf(resolutionMmhg: number): number {
   if (!(resolutionMmhg > 0)) return KPA_DECIMALS;
   return Math.max(KPA_DECIMALS, Math.round(-Math.log10((2 * resolutionMmhg) / MMHG_PER_KPA)));
 }
 
-export function interpret(c: DeriveContext, settings: Settings): Interpretation[] {
+/** What a reading's text is built from, on first read: the gas it belongs to. */
+type Phrase = (g: GasFacts) => string;
+
+/**
+ * One reading. Its text is phrased on first read: the reading checks report only the notable
+ * readings, and most gases have a normal ventilation and acid–base reading that a check never
+ * shows (`show`, hovers and exports read every text, and get the same words).
+ */
+class Reading implements Interpretation {
+  readonly topic: InterpretationTopic;
+  readonly basis: readonly string[];
+  readonly line: number | null;
+  readonly notable: boolean;
+  // ES private fields: not own properties, so comparing two readings looks at what they say.
+  #gas: GasFacts | null;
+  #phrase: Phrase | null;
+  #text: string | null;
+
+  constructor(topic: InterpretationTopic, basis: readonly string[], gas: GasFacts, notable: boolean, phrase: Phrase | string) {
+    this.topic = topic;
+    this.basis = basis;
+    this.line = gas.line;
+    this.notable = notable;
+    this.#gas = typeof phrase === 'string' ? null : gas;
+    this.#phrase = typeof phrase === 'string' ? null : phrase;
+    this.#text = typeof phrase === 'string' ? phrase : null;
+  }
+
+  get text(): string {
+    if (this.#text === null) {
+      this.#text = this.#phrase!(this.#gas!);
+      this.#gas = null;
+      this.#phrase = null;
+    }
+    return this.#text;
+  }
+
+  /** As JSON, the text is written as a field was (a getter is not an own property). */
+  toJSON(): Interpretation {
+    return { topic: this.topic, text: this.text, basis: this.basis, line: this.line, notable: this.notable };
+  }
+}
+
+// The fields and derived values each reading rests on: one list each, shared by every gas.
+const BASIS_PAO2: readonly string[] = ['pao2'];
+const BASIS_PAO2_ALVEOLAR: readonly string[] = ['pao2', 'pao2_alveolar'];
+const BASIS_PAO2_PF: readonly string[] = ['pao2', 'pf_ratio'];
+const BASIS_PACO2: readonly string[] = ['paco2'];
+const BASIS_GASES: readonly string[] = ['pao2', 'paco2'];
+const BASIS_GASES_ALVEOLAR: readonly string[] = ['pao2', 'paco2', 'pao2_alveolar'];
+const BASIS_GASES_FIO2: readonly string[] = ['pao2', 'paco2', 'fio2'];
+const BASIS_GASES_DEVICE: readonly string[] = ['pao2', 'paco2', 'device'];
+const BASIS_ACID_BASE: readonly string[] = ['ph', 'paco2', 'hco3'];
+const BASIS_MECHANISM: readonly string[] = ['pio2', 'aa_gradient', 'paco2'];
+const BASIS_MECHANISM_NOT_READ: readonly string[] = ['pio2', 'paco2', 'pao2'];
+const BASIS_NONE: readonly string[] = [];
+
+/** Why nothing is read from a PaO2 above the alveolar PO2 (PN401). */
+const NOT_READ = 'the FiO2, pressure, PaCO2 and PaO2 stated cannot go together (see PN401)';
+
+/**
+ * The gas at one timepoint as its readings see it: the values, what they are compared with, and
+ * which side of each threshold they fall on. Made once per gas and shared by its readings.
+ */
+class GasFacts {
+  readonly gas: GasWords;
+  readonly pao2: Term | null;
+  readonly paco2: Term | null;
+  /** The gas line, for the reading checks (null when the gas was not stated here). */
+  readonly line: number | null;
+  readonly o2Resolution: number;
+  readonly co2Resolution: number;
+  readonly hypoxaemic: boolean;
+  readonly hypercapnic: boolean;
+  readonly fio2: Term | null;
+  readonly onOxygen: boolean;
+  /** An oxygen device in force whose FiO2 is not stated (a cannula, a mask): oxygen, amount unknown. */
+  readonly oxygenDevice: string | null;
+  /** A PaO2 above the alveolar PO2 the FiO2, pressure and PaCO2 allow (PN401). */
+  readonly impossible: boolean;
+  /** Set by the oxygenation reading: the P/F, and the Berlin band's P/F, PEEP and boundary. */
+  pf: DerivedValue | null = null;
+  bandPf: DerivedValue | null = null;
+  adjusted = false;
+  peep: Term | null = null;
+  onBoundary: number | undefined = undefined;
+  band: BerlinOxygenationBand | null = null;
+  cls: AcidBaseClassification | null = null;
+
+  constructor(readonly c: DeriveContext, readonly settings: Settings) {
+    const pao2 = (this.pao2 = c.field('pao2', 'PaO2'));
+    const paco2 = (this.paco2 = c.field('paco2', 'PaCO2'));
+    const lineOf = pao2 ?? paco2;
+    this.line = lineOf !== null && lineOf.origin.kind === 'here' ? lineOf.origin.line : null;
+    this.gas = showsKpa(c.timepoint) ? GAS_KPA : GAS_MMHG;
+    // A gas written in kPa is compared with a threshold at the resolution it was written with, so
+    // that it falls on the side the mmHg value it is written for would: 8.0 kPa as 60 mmHg, 6.7 kPa as 50.
+    this.o2Resolution = c.writtenResolutionMmhg('pao2');
+    this.co2Resolution = c.writtenResolutionMmhg('paco2');
+    this.hypoxaemic = pao2 !== null && sideOf(pao2.value, settings.hypoxaemiaBelowMmhg, this.o2Resolution) < 0;
+    this.hypercapnic = paco2 !== null && sideOf(paco2.value, settings.hypercapniaAboveMmhg, this.co2Resolution) > 0;
+    const fio2 = (this.fio2 = c.fio2());
+    this.onOxygen = fio2 !== null && fio2.value > 0.21 + 1e-9;
+    const device = fio2 === null ? c.word('device')?.word ?? null : null;
+    this.oxygenDevice = device !== null && device !== 'room air' ? device : null;
+    // One of the FiO2, pressure, PaCO2 and PaO2 is wrong, so nothing is read from the PaO2 until the
+    // note is mended (as PN402 holds the acid–base reading).
+    const alveolar = pao2 ? c.derivedValue('pao2_alveolar') : null;
+    this.impossible = pao2 !== null && alveolar !== null && isAboveAlveolar(pao2.value, alveolar.value);
+  }
+}
+
+/** Whether a PaO2, PaCO2 or pH is stated at this timepoint: the readings are of a gas stated here. */
+function gasStatedHere(c: DeriveContext): boolean {
+  // Most timepoints state no gas: asked of the few values stated here before the values in force
+  // (a field stated here is among them, so one that is not cannot be stated here).
+  const stated = c.timepoint.stated;
+  let any = false;
+  for (let i = 0; i < stated.length; i++) {
+    const id = stated[i]!.fieldId;
+    if (id === 'pao2' || id === 'paco2' || id === 'ph') {
+      any = true;
+      break;
+    }
+  }
+  return any && (c.statedHere('pao2') || c.statedHere('paco2') || c.statedHere('ph'));
+}
+
+export function interpret(c: DeriveContext, settings: Settings): readonly Interpretation[] {
+  if (!gasStatedHere(c)) return NONE;
+  const g = new GasFacts(c, settings);
   const out: Interpretation[] = [];
-  const gasHere = c.statedHere('pao2') || c.statedHere('paco2') || c.statedHere('ph');
-  if (!gasHere) return out;
-  const pao2 = c.field('pao2', 'PaO2');
-  const paco2 = c.field('paco2', 'PaCO2');
-  const line = (pao2 ?? paco2)?.origin.kind === 'here' ? ((pao2 ?? paco2)!.origin as { line: number }).line : null;
-  const push = (topic: Interpretation['topic'], text: string, basis: string[], notable = true) => out.push({ topic, text, basis, line, notable });
-  const gas = new GasWords(showsKpa(c.timepoint));
-
-  // A gas written in kPa is compared with a threshold at the resolution it was written with, so
-  // that it falls on the side the mmHg value it is written for would: 8.0 kPa as 60 mmHg, 6.7 kPa as 50.
-  const o2Resolution = c.writtenResolutionMmhg('pao2');
-  const co2Resolution = c.writtenResolutionMmhg('paco2');
-  const hypoxaemic = pao2 !== null && sideOf(pao2.value, settings.hypoxaemiaBelowMmhg, o2Resolution) < 0;
-  const hypercapnic = paco2 !== null && sideOf(paco2.value, settings.hypercapniaAboveMmhg, co2Resolution) > 0;
-  const fio2 = c.fio2();
-  const onOxygen = fio2 !== null && fio2.value > 0.21 + 1e-9;
-  // An oxygen device in force whose FiO2 is not stated (a cannula, a mask): oxygen, amount unknown.
-  const device = fio2 === null ? c.word('device')?.word ?? null : null;
-  const oxygenDevice = device !== null && device !== 'room air' ? device : null;
-
-  // A PaO2 above the alveolar PO2 the FiO2, pressure and PaCO2 allow (PN401): one of them is wrong,
-  // so nothing is read from the PaO2 until the note is mended (as PN402 holds the acid–base reading).
-  const alveolar = pao2 ? c.derivedValue('pao2_alveolar') : null;
-  const impossible = pao2 !== null && alveolar !== null && isAboveAlveolar(pao2.value, alveolar.value);
-  const notRead = 'the FiO2, pressure, PaCO2 and PaO2 stated cannot go together (see PN401)';
-
-  // Oxygenation
-  if (pao2 && impossible) {
-    push('oxygenation', `PaO2 ${gas.value(pao2.value)}: oxygenation not read, as ${notRead}.`, ['pao2', 'pao2_alveolar'], false);
-  } else if (pao2) {
-    const pf = c.derivedValue('pf_ratio');
-    // A P/F from a PaO2 written in kPa is read at the PaO2's resolution divided by the FiO2: 16.0 kPa
-    // on FiO2 0.60 (P/F 200.02 mmHg) is on the 200 mmHg boundary, as 120 mmHg on 0.60 is.
-    const pfResolution = fio2 !== null && fio2.value > 0 ? o2Resolution / fio2.value : 0;
-    // Numbers are shown with the decimals that keep them on their side of the thresholds named.
-    const hypoxaemiaAt = settings.hypoxaemiaBelowMmhg;
-    const pao2Shown = (t1: number, t2 = NaN) => gas.measured(pao2.value, o2Resolution, t1, t2);
-    const onHypoxaemiaThreshold = sideOf(pao2.value, hypoxaemiaAt, o2Resolution) === 0;
-    if (hypoxaemic) {
-      const grade = sideOf(pao2.value, SEVERE_HYPOXAEMIA_MMHG, o2Resolution) < 0 ? 'severe' : 'moderate';
-      push('oxygenation', `PaO2 ${pao2Shown(hypoxaemiaAt, SEVERE_HYPOXAEMIA_MMHG)}: consistent with ${grade} hypoxaemia (below ${gas.threshold(hypoxaemiaAt, pao2.value)}${grade === 'severe' ? `, and below ${gas.threshold(SEVERE_HYPOXAEMIA_MMHG, pao2.value)}` : ''})${onOxygen ? ` despite ${fio2Words(fio2)}` : ''}.`, ['pao2']);
-    } else if (onOxygen && pf && sideOf(pf.value, 300, pfResolution) <= 0) {
-      const carried = carriedWords(fio2);
-      push('oxygenation', `PaO2 ${pao2Shown(hypoxaemiaAt)} on FiO2 ${formatNumber(fio2.value, 2)} (P/F ${gas.kpa ? `${kpaNumber(pf.value)} kPa, ` : ''}${formatAgainst(pf.value, 0, 300)} mmHg${carried ? `; ${carried}` : ''}): consistent with impaired oxygenation supported by oxygen.`, ['pao2', 'pf_ratio']);
-    } else if (sideOf(pao2.value, LOW_NORMAL_PAO2_MMHG, o2Resolution) < 0) {
-      const where = onHypoxaemiaThreshold ? `at the hypoxaemia threshold of ${gas.on(hypoxaemiaAt, o2Resolution)}, not below it` : `above the hypoxaemia threshold of ${gas.threshold(hypoxaemiaAt, pao2.value)}`;
-      push('oxygenation', `PaO2 ${pao2Shown(hypoxaemiaAt, LOW_NORMAL_PAO2_MMHG)}: consistent with mildly reduced oxygenation, ${where}.`, ['pao2'], false);
-    } else {
-      push('oxygenation', `PaO2 ${pao2Shown(LOW_NORMAL_PAO2_MMHG)}${onOxygen ? ` on ${fio2Words(fio2)}` : ''}: consistent with adequate arterial oxygenation.`, ['pao2'], false);
-    }
-    // Berlin oxygenation band: only with PEEP or CPAP ≥ 5 cmH2O; an oxygenation band, never a diagnosis.
-    const peep = c.peepLike();
-    const adjusted = c.derivedValue('pf_ratio_altitude_adjusted');
-    const pfForBand = adjusted ?? pf;
-    if (pfForBand && peep && peep.value >= BERLIN_MIN_PEEP_CMH2O) {
-      // The altitude adjustment scales the resolution as it scales the P/F.
-      const resolution = pf && pf.value > 0 ? (pfResolution * pfForBand.value) / pf.value : 0;
-      const onBoundary = BERLIN_BOUNDARIES.find((b) => sideOf(pfForBand.value, b, resolution) === 0 && resolution > 0);
-      const band = berlinOxygenationBand(onBoundary ?? pfForBand.value);
-      if (band) {
-        const words = band === 'pf-200-to-300' ? '200–300' : band === 'pf-100-to-200' ? '100–200' : '≤ 100';
-        // The bands are defined in mmHg: a kPa note gets the P/F in both units.
-        const pfShown = `${onBoundary ?? formatAgainst(pfForBand.value, 0, 100, 200, 300)} mmHg`;
-        const carried = carriedWords(fio2, peep);
-        push('oxygenation-band', `P/F ${gas.kpa ? `${kpaNumber(pfForBand.value)} kPa (${pfShown})` : pfShown}${adjusted ? ' (adjusted for altitude)' : ''} with ${peep.name} ${formatAgainst(peep.value, 0, BERLIN_MIN_PEEP_CMH2O)} cmH2O${carried ? ` (${carried})` : ''}: consistent with the ${words} mmHg oxygenation band of the Berlin definition (the band called ${BERLIN_BAND_SEVERITY[band]} there) — an oxygenation band, not a diagnosis.`, [adjusted ? 'pf_ratio_altitude_adjusted' : 'pf_ratio', peep.fieldId ?? 'peep']);
-      }
-    }
+  if (g.pao2 !== null) readOxygenation(g, out);
+  if (g.paco2 !== null) {
+    const v = g.paco2.value;
+    const hypocapnic = sideOf(v, settings.hypocapniaBelowMmhg, g.co2Resolution) < 0;
+    out.push(new Reading('ventilation', BASIS_PACO2, g, g.hypercapnic || hypocapnic, ventilationText));
   }
-
-  // Ventilation
-  if (paco2) {
-    const v = paco2.value;
-    const hypercapniaAt = settings.hypercapniaAboveMmhg;
-    const hypocapnic = sideOf(v, settings.hypocapniaBelowMmhg, co2Resolution) < 0;
-    const below = sideOf(v, hypercapniaAt, co2Resolution) === 0 ? `at the hypercapnia threshold of ${gas.on(hypercapniaAt, co2Resolution)}, not above it` : `below the hypercapnia threshold of ${gas.threshold(hypercapniaAt, v)}`;
-    const text = hypercapnic
-      ? `consistent with hypercapnia (above ${gas.threshold(hypercapniaAt, v)}): ventilation is not clearing CO2`
-      : sideOf(v, UPPER_NORMAL_PACO2_MMHG, co2Resolution) > 0
-        ? `consistent with a mildly raised PaCO2, ${below}`
-        : hypocapnic
-          ? `consistent with hypocapnia (below ${gas.threshold(settings.hypocapniaBelowMmhg, v)}): ventilation above metabolic need`
-          : 'consistent with normal ventilation';
-    push('ventilation', `PaCO2 ${gas.measured(v, co2Resolution, hypercapniaAt, UPPER_NORMAL_PACO2_MMHG, settings.hypocapniaBelowMmhg)}: ${text}.`, ['paco2'], hypercapnic || hypocapnic);
-  }
-
-  // Respiratory failure
-  if (pao2 && paco2 && impossible) {
-    push('respiratory-failure', `Respiratory failure not read: ${notRead}.`, ['pao2', 'paco2', 'pao2_alveolar'], false);
-  } else if (pao2 && paco2) {
-    // The numbers each reading rests on, with the threshold each is read against: `PaO2 52 mmHg, below
-    // 60 mmHg`, `PaCO2 50 mmHg, not above 50 mmHg` (a value on a threshold is on neither side).
-    const o2At = settings.hypoxaemiaBelowMmhg;
-    const co2At = settings.hypercapniaAboveMmhg;
-    const o2 = `PaO2 ${gas.measured(pao2.value, o2Resolution, o2At)}`;
-    const o2Side = `${hypoxaemic ? 'below' : 'not below'} ${sideOf(pao2.value, o2At, o2Resolution) === 0 ? gas.on(o2At, o2Resolution) : gas.threshold(o2At, pao2.value)}`;
-    const co2 = `PaCO2 ${gas.measured(paco2.value, co2Resolution, co2At)}, ${hypercapnic ? 'above' : 'not above'} ${sideOf(paco2.value, co2At, co2Resolution) === 0 ? gas.on(co2At, co2Resolution) : gas.threshold(co2At, paco2.value)}`;
-    if (hypoxaemic && hypercapnic) push('respiratory-failure', `Consistent with type 2 (hypercapnic) respiratory failure: hypoxaemia with hypercapnia (${o2}, ${o2Side}; ${co2}).`, ['pao2', 'paco2']);
-    else if (hypoxaemic) push('respiratory-failure', `Consistent with type 1 (hypoxaemic) respiratory failure: hypoxaemia with normal or low PaCO2 (${o2}, ${o2Side}; ${co2}).`, ['pao2', 'paco2']);
-    else if (hypercapnic && onOxygen) push('respiratory-failure', `Consistent with type 2 (hypercapnic) respiratory failure, with PaO2 held up by supplemental oxygen (${co2}; ${o2} on ${fio2Words(fio2)}).`, ['pao2', 'paco2', 'fio2']);
-    else if (hypercapnic && oxygenDevice !== null) push('respiratory-failure', `Consistent with type 2 (hypercapnic) respiratory failure, with PaO2 held up by supplemental oxygen (${co2}; ${o2} with oxygen by ${oxygenDevice}, FiO2 not stated).`, ['pao2', 'paco2', 'device']);
-    // FiO2 unknown: oxygen may be holding the PaO2 up, so no negative statement is made.
-    else if (hypercapnic && fio2 === null) push('respiratory-failure', `Hypercapnia (${co2}) with ${o2}, ${o2Side}, and no FiO2 stated: on supplemental oxygen this would be consistent with type 2 (hypercapnic) respiratory failure; add ${c.fio2Need()} to tell.`, ['pao2', 'paco2']);
-    // Hypercapnia on air is ventilatory failure whatever the PaO2; the type 2 reading here also needs hypoxaemia, and says so rather than calling it no failure.
-    else if (hypercapnic) push('respiratory-failure', `Hypercapnia (${co2}) without hypoxaemia on air (${o2}, ${o2Side}): consistent with ventilatory (hypercapnic) failure; the type 2 respiratory failure read here also needs hypoxaemia.`, ['pao2', 'paco2', 'fio2']);
-  }
-
-  // Mechanism of hypoxaemia
-  if (hypoxaemic) out.push(...mechanism(c, settings, line, gas, hypercapnic));
-
-  // Acid–base
-  const cls = classification(c);
-  if (cls && !cls.consistency.consistent) {
-    const stated = (id: string) => c.field(id)?.value ?? NaN;
-    push('acid-base', `Acid–base not interpreted: the reported HCO3 ${formatNumber(stated('hco3'), HCO3_DECIMALS)} mmol/L differs from the ${formatNumber(cls.consistency.calculatedHco3MmolL, HCO3_DECIMALS)} mmol/L that pH ${formatNumber(stated('ph'), PH_DECIMALS)} and PaCO2 ${gas.measured(stated('paco2'), c.writtenResolutionMmhg('paco2'))} give (see PN402), so neither the disorder nor its expected compensation is worked out.`, ['ph', 'paco2', 'hco3'], false);
-  } else if (cls) {
-    const gapCorrected = c.derivedValue('anion_gap_albumin_corrected') !== null;
-    const ph = c.field('ph')?.value ?? NaN;
-    const hco3 = c.field('hco3')?.value ?? NaN;
-    push('acid-base', acidBaseText(cls, gas, { ph, paco2: paco2?.value ?? NaN, hco3, hypercapniaAboveMmhg: settings.hypercapniaAboveMmhg, co2Resolution: c.writtenResolutionMmhg('paco2'), gapCorrected }), ['ph', 'paco2', 'hco3'], cls.primary !== 'normal' || cls.additional.length > 0);
-  }
+  readRespiratoryFailure(g, out);
+  if (g.hypoxaemic) out.push(mechanism(g));
+  const cls = (g.cls = classification(c));
+  if (cls && !cls.consistency.consistent) out.push(new Reading('acid-base', BASIS_ACID_BASE, g, false, acidBaseNotReadText));
+  else if (cls) out.push(new Reading('acid-base', BASIS_ACID_BASE, g, cls.primary !== 'normal' || cls.additional.length > 0, acidBaseReadingText));
   return out;
 }
 
-function mechanism(c: DeriveContext, settings: Settings, line: number | null, gas: GasWords, hypercapnic: boolean): Interpretation[] {
+function readOxygenation(g: GasFacts, out: Interpretation[]): void {
+  const { c, settings, pao2, fio2 } = g;
+  if (pao2 === null) return;
+  if (g.impossible) {
+    out.push(new Reading('oxygenation', BASIS_PAO2_ALVEOLAR, g, false, oxygenationNotReadText));
+    return;
+  }
+  const pf = (g.pf = c.derivedValue('pf_ratio'));
+  // A P/F from a PaO2 written in kPa is read at the PaO2's resolution divided by the FiO2: 16.0 kPa
+  // on FiO2 0.60 (P/F 200.02 mmHg) is on the 200 mmHg boundary, as 120 mmHg on 0.60 is.
+  const pfResolution = fio2 !== null && fio2.value > 0 ? g.o2Resolution / fio2.value : 0;
+  if (g.hypoxaemic) out.push(new Reading('oxygenation', BASIS_PAO2, g, true, hypoxaemiaText));
+  else if (g.onOxygen && pf && sideOf(pf.value, 300, pfResolution) <= 0) out.push(new Reading('oxygenation', BASIS_PAO2_PF, g, true, supportedOxygenationText));
+  else if (sideOf(pao2.value, LOW_NORMAL_PAO2_MMHG, g.o2Resolution) < 0) out.push(new Reading('oxygenation', BASIS_PAO2, g, false, mildlyReducedText));
+  else out.push(new Reading('oxygenation', BASIS_PAO2, g, false, adequateOxygenationText));
+  // Berlin oxygenation band: only with PEEP or CPAP ≥ 5 cmH2O; an oxygenation band, never a diagnosis.
+  const peep = (g.peep = c.peepLike());
+  const adjusted = c.derivedValue('pf_ratio_altitude_adjusted');
+  const pfForBand = adjusted ?? pf;
+  if (!pfForBand || !peep || peep.value < BERLIN_MIN_PEEP_CMH2O) return;
+  // The altitude adjustment scales the resolution as it scales the P/F.
+  const resolution = pf && pf.value > 0 ? (pfResolution * pfForBand.value) / pf.value : 0;
+  const onBoundary = boundaryOn(pfForBand.value, resolution);
+  const band = berlinOxygenationBand(onBoundary ?? pfForBand.value);
+  if (!band) return;
+  g.bandPf = pfForBand;
+  g.adjusted = adjusted !== null;
+  g.onBoundary = onBoundary;
+  g.band = band;
+  out.push(new Reading('oxygenation-band', [adjusted ? 'pf_ratio_altitude_adjusted' : 'pf_ratio', peep.fieldId ?? 'peep'], g, true, berlinBandText));
+}
+
+/** The Berlin boundary (mmHg) a P/F read at `resolution` is on, if any (none when read exactly). */
+function boundaryOn(pf: number, resolution: number): number | undefined {
+  if (!(resolution > 0)) return undefined;
+  for (const b of BERLIN_BOUNDARIES) if (sideOf(pf, b, resolution) === 0) return b;
+  return undefined;
+}
+
+function readRespiratoryFailure(g: GasFacts, out: Interpretation[]): void {
+  const { pao2, paco2, hypoxaemic, hypercapnic } = g;
+  if (pao2 === null || paco2 === null) return;
+  if (g.impossible) out.push(new Reading('respiratory-failure', BASIS_GASES_ALVEOLAR, g, false, `Respiratory failure not read: ${NOT_READ}.`));
+  // Neither hypoxaemia nor hypercapnia (the usual gas): no respiratory failure reading.
+  else if (hypoxaemic && hypercapnic) out.push(new Reading('respiratory-failure', BASIS_GASES, g, true, type2Text));
+  else if (hypoxaemic) out.push(new Reading('respiratory-failure', BASIS_GASES, g, true, type1Text));
+  else if (!hypercapnic) return;
+  else if (g.onOxygen) out.push(new Reading('respiratory-failure', BASIS_GASES_FIO2, g, true, type2OnOxygenText));
+  else if (g.oxygenDevice !== null) out.push(new Reading('respiratory-failure', BASIS_GASES_DEVICE, g, true, type2OnDeviceText));
+  // FiO2 unknown: oxygen may be holding the PaO2 up, so no negative statement is made.
+  else if (g.fio2 === null) out.push(new Reading('respiratory-failure', BASIS_GASES, g, true, hypercapniaNoFio2Text));
+  // Hypercapnia on air is ventilatory failure whatever the PaO2; the type 2 reading here also needs hypoxaemia, and says so rather than calling it no failure.
+  else out.push(new Reading('respiratory-failure', BASIS_GASES_FIO2, g, true, hypercapniaOnAirText));
+}
+
+// The readings' words. Each is called with the gas it reads, on the first read of the text, and
+// only where the reading checks above chose it (so `pao2`, `paco2`, `fio2`… are there when used).
+
+function oxygenationNotReadText(g: GasFacts): string {
+  return `PaO2 ${g.gas.value(g.pao2!.value)}: oxygenation not read, as ${NOT_READ}.`;
+}
+
+/** The PaO2 with the decimals that keep it on its side of the thresholds named. */
+function pao2Shown(g: GasFacts, t1: number, t2 = NaN): string {
+  return g.gas.measured(g.pao2!.value, g.o2Resolution, t1, t2);
+}
+
+function hypoxaemiaText(g: GasFacts): string {
+  const { gas, fio2 } = g;
+  const pao2 = g.pao2!.value;
+  const hypoxaemiaAt = g.settings.hypoxaemiaBelowMmhg;
+  const grade = sideOf(pao2, SEVERE_HYPOXAEMIA_MMHG, g.o2Resolution) < 0 ? 'severe' : 'moderate';
+  return `PaO2 ${pao2Shown(g, hypoxaemiaAt, SEVERE_HYPOXAEMIA_MMHG)}: consistent with ${grade} hypoxaemia (below ${gas.threshold(hypoxaemiaAt, pao2)}${grade === 'severe' ? `, and below ${gas.threshold(SEVERE_HYPOXAEMIA_MMHG, pao2)}` : ''})${g.onOxygen ? ` despite ${fio2Words(fio2!)}` : ''}.`;
+}
+
+function supportedOxygenationText(g: GasFacts): string {
+  const fio2 = g.fio2!;
+  const pf = g.pf!.value;
+  const carried = carriedWords(fio2);
+  return `PaO2 ${pao2Shown(g, g.settings.hypoxaemiaBelowMmhg)} on FiO2 ${formatNumber(fio2.value, 2)} (P/F ${g.gas.kpa ? `${kpaNumber(pf)} kPa, ` : ''}${formatAgainst(pf, 0, 300)} mmHg${carried ? `; ${carried}` : ''}): consistent with impaired oxygenation supported by oxygen.`;
+}
+
+function mildlyReducedText(g: GasFacts): string {
+  const { gas } = g;
+  const pao2 = g.pao2!.value;
+  const hypoxaemiaAt = g.settings.hypoxaemiaBelowMmhg;
+  const onThreshold = sideOf(pao2, hypoxaemiaAt, g.o2Resolution) === 0;
+  const where = onThreshold ? `at the hypoxaemia threshold of ${gas.on(hypoxaemiaAt, g.o2Resolution)}, not below it` : `above the hypoxaemia threshold of ${gas.threshold(hypoxaemiaAt, pao2)}`;
+  return `PaO2 ${pao2Shown(g, hypoxaemiaAt, LOW_NORMAL_PAO2_MMHG)}: consistent with mildly reduced oxygenation, ${where}.`;
+}
+
+function adequateOxygenationText(g: GasFacts): string {
+  return `PaO2 ${pao2Shown(g, LOW_NORMAL_PAO2_MMHG)}${g.onOxygen ? ` on ${fio2Words(g.fio2!)}` : ''}: consistent with adequate arterial oxygenation.`;
+}
+
+function berlinBandText(g: GasFacts): string {
+  const band = g.band!;
+  const pf = g.bandPf!.value;
+  const peep = g.peep!;
+  const words = band === 'pf-200-to-300' ? '200–300' : band === 'pf-100-to-200' ? '100–200' : '≤ 100';
+  // The bands are defined in mmHg: a kPa note gets the P/F in both units.
+  const pfShown = `${g.onBoundary ?? formatAgainst(pf, 0, 100, 200, 300)} mmHg`;
+  const carried = carriedWords(g.fio2, peep);
+  return `P/F ${g.gas.kpa ? `${kpaNumber(pf)} kPa (${pfShown})` : pfShown}${g.adjusted ? ' (adjusted for altitude)' : ''} with ${peep.name} ${formatAgainst(peep.value, 0, BERLIN_MIN_PEEP_CMH2O)} cmH2O${carried ? ` (${carried})` : ''}: consistent with the ${words} mmHg oxygenation band of the Berlin definition (the band called ${BERLIN_BAND_SEVERITY[band]} there) — an oxygenation band, not a diagnosis.`;
+}
+
+function ventilationText(g: GasFacts): string {
+  const { gas, settings, co2Resolution } = g;
+  const v = g.paco2!.value;
+  const hypercapniaAt = settings.hypercapniaAboveMmhg;
+  const text = g.hypercapnic
+    ? `consistent with hypercapnia (above ${gas.threshold(hypercapniaAt, v)}): ventilation is not clearing CO2`
+    : sideOf(v, UPPER_NORMAL_PACO2_MMHG, co2Resolution) > 0
+      ? `consistent with a mildly raised PaCO2, ${sideOf(v, hypercapniaAt, co2Resolution) === 0 ? `at the hypercapnia threshold of ${gas.on(hypercapniaAt, co2Resolution)}, not above it` : `below the hypercapnia threshold of ${gas.threshold(hypercapniaAt, v)}`}`
+      : sideOf(v, settings.hypocapniaBelowMmhg, co2Resolution) < 0
+        ? `consistent with hypocapnia (below ${gas.threshold(settings.hypocapniaBelowMmhg, v)}): ventilation above metabolic need`
+        : 'consistent with normal ventilation';
+  return `PaCO2 ${gas.measured(v, co2Resolution, hypercapniaAt, UPPER_NORMAL_PACO2_MMHG, settings.hypocapniaBelowMmhg)}: ${text}.`;
+}
+
+// The numbers each respiratory failure reading rests on, with the threshold each is read against:
+// `PaO2 52 mmHg, below 60 mmHg`, `PaCO2 50 mmHg, not above 50 mmHg` (a value on a threshold is on neither side).
+
+function o2Words(g: GasFacts): string {
+  return `PaO2 ${pao2Shown(g, g.settings.hypoxaemiaBelowMmhg)}`;
+}
+
+function o2Side(g: GasFacts): string {
+  const pao2 = g.pao2!.value;
+  const o2At = g.settings.hypoxaemiaBelowMmhg;
+  return `${g.hypoxaemic ? 'below' : 'not below'} ${sideOf(pao2, o2At, g.o2Resolution) === 0 ? g.gas.on(o2At, g.o2Resolution) : g.gas.threshold(o2At, pao2)}`;
+}
+
+function co2Words(g: GasFacts): string {
+  const paco2 = g.paco2!.value;
+  const co2At = g.settings.hypercapniaAboveMmhg;
+  return `PaCO2 ${g.gas.measured(paco2, g.co2Resolution, co2At)}, ${g.hypercapnic ? 'above' : 'not above'} ${sideOf(paco2, co2At, g.co2Resolution) === 0 ? g.gas.on(co2At, g.co2Resolution) : g.gas.threshold(co2At, paco2)}`;
+}
+
+function type2Text(g: GasFacts): string {
+  return `Consistent with type 2 (hypercapnic) respiratory failure: hypoxaemia with hypercapnia (${o2Words(g)}, ${o2Side(g)}; ${co2Words(g)}).`;
+}
+
+function type1Text(g: GasFacts): string {
+  return `Consistent with type 1 (hypoxaemic) respiratory failure: hypoxaemia with normal or low PaCO2 (${o2Words(g)}, ${o2Side(g)}; ${co2Words(g)}).`;
+}
+
+function type2OnOxygenText(g: GasFacts): string {
+  return `Consistent with type 2 (hypercapnic) respiratory failure, with PaO2 held up by supplemental oxygen (${co2Words(g)}; ${o2Words(g)} on ${fio2Words(g.fio2!)}).`;
+}
+
+function type2OnDeviceText(g: GasFacts): string {
+  return `Consistent with type 2 (hypercapnic) respiratory failure, with PaO2 held up by supplemental oxygen (${co2Words(g)}; ${o2Words(g)} with oxygen by ${g.oxygenDevice}, FiO2 not stated).`;
+}
+
+function hypercapniaNoFio2Text(g: GasFacts): string {
+  return `Hypercapnia (${co2Words(g)}) with ${o2Words(g)}, ${o2Side(g)}, and no FiO2 stated: on supplemental oxygen this would be consistent with type 2 (hypercapnic) respiratory failure; add ${g.c.fio2Need()} to tell.`;
+}
+
+function hypercapniaOnAirText(g: GasFacts): string {
+  return `Hypercapnia (${co2Words(g)}) without hypoxaemia on air (${o2Words(g)}, ${o2Side(g)}): consistent with ventilatory (hypercapnic) failure; the type 2 respiratory failure read here also needs hypoxaemia.`;
+}
+
+function acidBaseNotReadText(g: GasFacts): string {
+  const { c } = g;
+  const stated = (id: string) => c.field(id)?.value ?? NaN;
+  return `Acid–base not interpreted: the reported HCO3 ${formatNumber(stated('hco3'), HCO3_DECIMALS)} mmol/L differs from the ${formatNumber(g.cls!.consistency.calculatedHco3MmolL, HCO3_DECIMALS)} mmol/L that pH ${formatNumber(stated('ph'), PH_DECIMALS)} and PaCO2 ${g.gas.measured(stated('paco2'), c.writtenResolutionMmhg('paco2'))} give (see PN402), so neither the disorder nor its expected compensation is worked out.`;
+}
+
+function acidBaseReadingText(g: GasFacts): string {
+  const { c, settings } = g;
+  const gapCorrected = c.derivedValue('anion_gap_albumin_corrected') !== null;
+  const ph = c.field('ph')?.value ?? NaN;
+  const hco3 = c.field('hco3')?.value ?? NaN;
+  return acidBaseText(g.cls!, g.gas, { ph, paco2: g.paco2?.value ?? NaN, hco3, hypercapniaAboveMmhg: settings.hypercapniaAboveMmhg, co2Resolution: g.co2Resolution, gapCorrected });
+}
+
+/** The mechanism of hypoxaemia (a hypoxaemic gas only, so phrased at once). */
+function mechanism(g: GasFacts): Interpretation {
+  const { c, settings, gas, hypercapnic } = g;
   const pio2 = c.derivedValue('pio2');
   const gradient = c.derivedValue('aa_gradient');
   const upper = c.derivedValue('aa_gradient_upper_normal');
   const paco2 = c.field('paco2');
   if (pio2 && paco2 && !gradient) {
     // Everything is stated, yet no gradient: the PaO2 is above the alveolar PO2, or that comes out negative.
-    return [{ topic: 'hypoxaemia-mechanism', text: 'Mechanism of hypoxaemia not assessed: the FiO2, pressure, PaCO2 and PaO2 stated cannot go together, so there is no A–a gradient (see PN401).', basis: ['pio2', 'paco2', 'pao2'], line, notable: false }];
+    return new Reading('hypoxaemia-mechanism', BASIS_MECHANISM_NOT_READ, g, false, 'Mechanism of hypoxaemia not assessed: the FiO2, pressure, PaCO2 and PaO2 stated cannot go together, so there is no A–a gradient (see PN401).');
   }
   if (!pio2 || !gradient || !paco2) {
     const need = !paco2 ? 'pco2' : c.fio2Need();
-    return [{ topic: 'hypoxaemia-mechanism', text: `Mechanism of hypoxaemia not assessed: add ${need} to get the A–a gradient.`, basis: [], line, notable: false }];
+    return new Reading('hypoxaemia-mechanism', BASIS_NONE, g, false, `Mechanism of hypoxaemia not assessed: add ${need} to get the A–a gradient.`);
   }
   const limit = upper?.value ?? AA_UPPER_NORMAL_NO_AGE_MMHG;
   const causes: string[] = [];
-  const basis = ['pio2', 'aa_gradient', 'paco2'];
   if (pio2.value < LOW_PIO2_MMHG) causes.push(`low inspired oxygen (PiO2 ${gas.value(pio2.value, LOW_PIO2_MMHG)})`);
   if (hypercapnic) causes.push(`hypoventilation (PaCO2 ${gas.value(paco2.value, settings.hypercapniaAboveMmhg)})`);
   const raised = gradient.value > limit;
@@ -250,9 +454,9 @@ function mechanism(c: DeriveContext, settings: Settings, line: number | null, ga
   const caveat = onOxygen ? ' On supplemental oxygen the normal gradient is wider than the air-based limit.' : '';
   // The PiO2 (and so the gradient) rests on the FiO2: say so when it was stated at an earlier timepoint.
   const carried = fio2 !== null && fio2.origin.kind === 'carried' ? ` The PiO2 uses ${fio2Words(fio2)}.` : '';
-  if (causes.length === 0) return [{ topic: 'hypoxaemia-mechanism', text: `Hypoxaemia without a low PiO2, hypercapnia or a raised A–a gradient: recheck the inputs.${normalGradient}${carried}${caveat}`, basis, line, notable: true }];
+  if (causes.length === 0) return new Reading('hypoxaemia-mechanism', BASIS_MECHANISM, g, true, `Hypoxaemia without a low PiO2, hypercapnia or a raised A–a gradient: recheck the inputs.${normalGradient}${carried}${caveat}`);
   const text = causes.length === 1 ? `Hypoxaemia consistent with ${causes[0]}.` : `Hypoxaemia consistent with a mix of ${wordList(causes)}.`;
-  return [{ topic: 'hypoxaemia-mechanism', text: `${text}${normalGradient}${carried}${caveat}`, basis, line, notable: true }];
+  return new Reading('hypoxaemia-mechanism', BASIS_MECHANISM, g, true, `${text}${normalGradient}${carried}${caveat}`);
 }
 
 /**
@@ -260,18 +464,24 @@ function mechanism(c: DeriveContext, settings: Settings, line: number | null, ga
  * carry forward), since the reading is then only as current as that line: `FiO2 and PEEP carried
  * from line 3`; '' when none was. The line, not the timepoint's label: a label is free text.
  */
-function carriedWords(...terms: readonly (Term | null)[]): string {
+function carriedWords(first: Term | null, second: Term | null = null): string {
   // Most readings rest on nothing carried: nothing to build then.
-  if (!terms.some((t) => t !== null && t.origin.kind === 'carried')) return '';
-  const byOrigin = new Map<string, string[]>();
-  for (const t of terms) {
-    if (t === null || t.origin.kind !== 'carried') continue;
-    const where = `carried from line ${t.origin.line + 1}`;
-    const names = byOrigin.get(where) ?? [];
-    names.push(t.name);
-    byOrigin.set(where, names);
+  const a = first !== null && first.origin.kind === 'carried' ? first : null;
+  const b = second !== null && second.origin.kind === 'carried' ? second : null;
+  if (a === null || b === null) {
+    const one = a ?? b;
+    return one === null ? '' : `${one.name} ${carriedFrom(one)}`;
   }
-  return [...byOrigin].map(([where, names]) => `${wordList(names)} ${where}`).join('; ');
+  // Both carried: named together when they came from one line (`FiO2 and PEEP carried from line 3`).
+  const whereA = carriedFrom(a);
+  const whereB = carriedFrom(b);
+  if (whereA !== whereB) return `${a.name} ${whereA}; ${b.name} ${whereB}`;
+  // As `wordList` names two: each name once.
+  return `${a.name === b.name ? a.name : `${a.name} and ${b.name}`} ${whereA}`;
+}
+
+function carriedFrom(t: Term): string {
+  return t.origin.kind === 'carried' ? `carried from line ${t.origin.line + 1}` : '';
 }
 
 /** `FiO2 0.60`, with where it came from when it was carried: `FiO2 0.60 (carried from line 3)`. */
@@ -292,6 +502,9 @@ interface AcidBaseBasis {
   readonly gapCorrected: boolean;
 }
 
+/** The reference ranges the acid–base reading shows its numbers against. */
+const NORMAL_LIMITS = { ph: [PH_NORMAL.low, PH_NORMAL.high], paco2: [PACO2_NORMAL_MMHG.low, PACO2_NORMAL_MMHG.high], hco3: [HCO3_NORMAL_MMOL_L.low, HCO3_NORMAL_MMOL_L.high] } as const;
+
 const PH_DECIMALS = 2;
 const HCO3_DECIMALS = 1;
 
@@ -307,7 +520,7 @@ function acidBaseText(cls: AcidBaseClassification, gas: GasWords, basis: AcidBas
   const gap = cls.anionGap;
   const gapKind = gap?.metabolicAcidosisKind;
   const gapWords = gapKind === 'high-anion-gap' ? ' with a high anion gap' : gapKind === 'normal-anion-gap' ? ' with a normal anion gap' : gapKind === 'mixed-anion-gap' ? ' with high and normal anion-gap components' : '';
-  const limits = { ph: [PH_NORMAL.low, PH_NORMAL.high], paco2: [PACO2_NORMAL_MMHG.low, PACO2_NORMAL_MMHG.high], hco3: [HCO3_NORMAL_MMOL_L.low, HCO3_NORMAL_MMOL_L.high] } as const;
+  const limits = NORMAL_LIMITS;
   const phShown = `pH ${formatAgainst(ph, PH_DECIMALS, limits.ph[0], limits.ph[1])}`;
   const paco2Shown = `PaCO2 ${gas.measured(paco2, basis.co2Resolution, limits.paco2[0], limits.paco2[1], basis.hypercapniaAboveMmhg)}`;
   const hco3Shown = `HCO3 ${formatAgainst(hco3, HCO3_DECIMALS, limits.hco3[0], limits.hco3[1])} mmol/L`;
