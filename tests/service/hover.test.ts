@@ -121,6 +121,12 @@ describe('hover on a key, value or unit', () => {
     expect(md).toContain('`rrr` is not a key of `vitals` lines');
     expect(md).toContain('`rr`');
   });
+
+  it('quotes a key holding an invisible character with it shown escaped, as messages do', () => {
+    // `h<ZWJ>r` looks like `hr` but is not the key: the hover must not quote it as `hr`.
+    const md = markdown('vitals h\u200d|r 80');
+    expect(md).toContain('`h\\u{200D}r` is not a key of `vitals` lines');
+  });
 });
 
 describe('hover on a timepoint line', () => {

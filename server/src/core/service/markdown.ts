@@ -2,6 +2,7 @@
  * Small markdown helpers for hovers and tooltips: escaping text that comes from the note, and
  * the caution line that ends every hover with clinical content.
  */
+import { shownEscaped } from '../util/format';
 import { CAUTION } from './types';
 
 /** Escapes characters markdown would read as formatting (text from the note is never markup). */
@@ -9,8 +10,13 @@ export function escapeMarkdown(text: string): string {
   return text.replace(/[\\`*_[\]<>|~]/g, (c) => `\\${c}`);
 }
 
-/** Inline code that survives backticks inside the text. */
-export function code(text: string): string {
+/**
+ * Inline code that survives backticks inside the text. Invisible and reordering characters are
+ * shown escaped (`h\u{200D}r`), as in messages: a hover must not quote `hr` where the note holds
+ * something else.
+ */
+export function code(raw: string): string {
+  const text = shownEscaped(raw);
   const fence = text.includes('`') ? '``' : '`';
   const pad = text.startsWith('`') || text.endsWith('`') ? ' ' : '';
   return `${fence}${pad}${text}${pad}${fence}`;
