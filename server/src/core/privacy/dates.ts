@@ -106,6 +106,11 @@ function isWordGap(gap: string, afterAbbreviation: boolean): boolean {
   return (first === ',' || (first === '.' && afterAbbreviation)) && isBlankGap(gap.slice(1));
 }
 
+/** Whether runs `x` and `y` are both there with a gap between words of a written date between them. */
+function wordGapBetween(text: string, x: Run | undefined, y: Run | undefined): boolean {
+  return x !== undefined && y !== undefined && isWordGap(text.slice(x.end, y.start), isAbbreviatedMonth(x));
+}
+
 /** Between a day and the month after it: blanks or one hyphen (`4 March`, `4-Mar`). */
 function isDayMonthGap(gap: string): boolean {
   return isBlankGap(gap) || gap === '-';
@@ -120,15 +125,17 @@ function validDayMonth(a: number, b: number): boolean {
   return (a >= 1 && b >= 1) && ((a <= 31 && b <= 12) || (a <= 12 && b <= 31));
 }
 
-interface Found {
-  readonly start: number;
-  readonly end: number;
-  /** A two-digit year: a date only after a birth cue. */
-  readonly needsBirthCue: boolean;
+/**
+ * Adds the date found at `[start, end)` to `out`: a date of birth after a birth cue, else a
+ * calendar date unless it needs the cue (`needsBirthCue`: a two-digit year, or a bare year).
+ */
+function addDate(out: PrivacyMatch[], text: string, start: number, end: number, needsBirthCue: boolean): void {
+  const cue = birthCueBefore(text, start);
+  if (cue !== null) out.push(match('birth-date', text, start, end, cue));
+  else if (!needsBirthCue) out.push(match('calendar-date', text, start, end, null));
 }
 
-function numericDates(text: string, runs: readonly Run[]): Found[] {
-  const out: Found[] = [];
+function numericDates(text: string, runs: readonly Run[], out: PrivacyMatch[]): void {
   for (let i = 0; i + 2 < runs.length; i++) {
     const a = runs[i]!;
     const b = runs[i + 1]!;
@@ -150,27 +157,24 @@ function numericDates(text: string, runs: readonly Run[]): Found[] {
     const bn = Number(b.text);
     if (a.text.length === 4) {
       const y = yearOf(a);
-      if (y !== null && bn >= 1 && bn <= 12 && c.text.length <= 2 && Number(c.text) >= 1 && Number(c.text) <= 31) out.push({ start: a.start, end: c.end, needsBirthCue: false });
+      if (y !== null && bn >= 1 && bn <= 12 && c.text.length <= 2 && Number(c.text) >= 1 && Number(c.text) <= 31) addDate(out, text, a.start, c.end, false);
       continue;
     }
     if (a.text.length > 2 || !validDayMonth(Number(a.text), bn)) continue;
-    if (c.text.length === 4 && yearOf(c) !== null) out.push({ start: a.start, end: c.end, needsBirthCue: false });
-    else if (c.text.length === 2) out.push({ start: a.start, end: c.end, needsBirthCue: true });
+    if (c.text.length === 4 && yearOf(c) !== null) addDate(out, text, a.start, c.end, false);
+    else if (c.text.length === 2) addDate(out, text, a.start, c.end, true);
   }
-  return out;
 }
 
 /** `20260304`: a compact year-month-day. */
-function compactDates(runs: readonly Run[]): Found[] {
-  const out: Found[] = [];
+function compactDates(text: string, runs: readonly Run[], out: PrivacyMatch[]): void {
   for (const r of runs) {
     if (r.kind !== 'digits' || r.text.length !== 8) continue;
     const y = Number(r.text.slice(0, 4));
     const m = Number(r.text.slice(4, 6));
     const d = Number(r.text.slice(6));
-    if (y >= 1900 && y <= 2099 && m >= 1 && m <= 12 && d >= 1 && d <= 31) out.push({ start: r.start, end: r.end, needsBirthCue: false });
+    if (y >= 1900 && y <= 2099 && m >= 1 && m <= 12 && d >= 1 && d <= 31) addDate(out, text, r.start, r.end, false);
   }
-  return out;
 }
 
 /**
@@ -199,9 +203,7 @@ function twoDigitYearAfter(text: string, dayGap: string, month: Run, yearRun: Ru
   return !isCapitals(month.text) && !joinedNumber(text, yearRun.end, 1) && !followedByUnit(text, yearRun.end);
 }
 
-function writtenDates(text: string, runs: readonly Run[]): Found[] {
-  const out: Found[] = [];
-  const gapOk = (x: Run | undefined, y: Run | undefined) => x !== undefined && y !== undefined && isWordGap(text.slice(x.end, y.start), isAbbreviatedMonth(x));
+function writtenDates(text: string, runs: readonly Run[], out: PrivacyMatch[]): void {
   for (let i = 0; i < runs.length; i++) {
     const month = runs[i]!;
     if (monthOf(month) === null) continue;
@@ -223,14 +225,14 @@ function writtenDates(text: string, runs: readonly Run[]): Found[] {
     }
     let k = i + 1;
     // Day after: `March 4`, `Mar. 4th` (only when no day came before).
-    if (!found && gapOk(month, runs[k]) && dayOf(runs[k]) !== null && yearOf(runs[k]) === null) {
+    if (!found && wordGapBetween(text, month, runs[k]) && dayOf(runs[k]) !== null && yearOf(runs[k]) === null) {
       end = runs[k]!.end;
       found = true;
       k++;
     }
     // Year after: `4 March 2026`, `March 4, 2026`, `March 2026`.
     const yearRun = runs[k];
-    if (gapOk(runs[k - 1], yearRun) && yearOf(yearRun) !== null) {
+    if (wordGapBetween(text, runs[k - 1], yearRun) && yearOf(yearRun) !== null) {
       end = yearRun!.end;
       found = true;
       year = true;
@@ -245,36 +247,27 @@ function writtenDates(text: string, runs: readonly Run[]): Found[] {
     if (joinedNumber(text, start - 1, -1) || joinedNumber(text, end, 1)) continue;
     // `Aug 1 g`, `May 5 mg`: a quantity after a word that looks like a month.
     if (followedByUnit(text, end)) continue;
-    out.push({ start, end, needsBirthCue: false });
+    addDate(out, text, start, end, false);
   }
-  return out;
 }
 
-function birthYears(text: string, runs: readonly Run[]): Found[] {
-  const out: Found[] = [];
+function birthYears(text: string, runs: readonly Run[], out: PrivacyMatch[]): void {
   for (const r of runs) {
     if (yearOf(r) === null) continue;
     const before = text.charAt(r.start - 1);
     const after = text.charAt(r.end);
     if (isDateSep(before) || isDateSep(after) || after === ':') continue;
-    if (birthCueBefore(text, r.start) !== null) out.push({ start: r.start, end: r.end, needsBirthCue: true });
+    // A bare year is a date of birth after a birth cue, and nothing without one.
+    addDate(out, text, r.start, r.end, true);
   }
-  return out;
 }
 
 /** Dates and dates of birth in `text`, whose runs are `runs`. */
 export function findDates(text: string, runs: readonly Run[]): PrivacyMatch[] {
   const out: PrivacyMatch[] = [];
-  const add = (found: readonly Found[]) => {
-    for (const f of found) {
-      const cue = birthCueBefore(text, f.start);
-      if (cue !== null) out.push(match('birth-date', text, f.start, f.end, cue));
-      else if (!f.needsBirthCue) out.push(match('calendar-date', text, f.start, f.end, null));
-    }
-  };
-  add(numericDates(text, runs));
-  add(compactDates(runs));
-  add(writtenDates(text, runs));
-  add(birthYears(text, runs));
+  numericDates(text, runs, out);
+  compactDates(text, runs, out);
+  writtenDates(text, runs, out);
+  birthYears(text, runs, out);
   return out;
 }

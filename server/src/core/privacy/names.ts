@@ -253,10 +253,15 @@ interface Cue {
   readonly label: string;
 }
 
-/** The words that are cues in any case (besides the titles), lower case. */
-const CUE_WORDS: readonly string[] = ['as', 'kin', 'by', 'with', 'to', ...NAMING_WORDS, ...RELATIVES, ...OTHER_STRONG_WORDS, ...WEAK_WORDS];
-/** A longer word is no cue, found without lowering its case. */
-const LONGEST_CUE_WORD = Math.max(...CUE_WORDS.map((w) => w.length));
+/** The cues of one word in any case, lower case, with their kind (`name`, `wife`, `patient`). */
+const WORD_CUES: ReadonlyMap<string, CueKind> = new Map([
+  ...[...NAMING_WORDS].map((w) => [w, 'naming'] as const),
+  ...[...RELATIVES].map((w) => [w, 'relative'] as const),
+  ...[...OTHER_STRONG_WORDS].map((w) => [w, 'strong'] as const),
+  ...[...WEAK_WORDS].map((w) => [w, 'weak'] as const),
+]);
+/** A word longer than every cue (titles, cue words, `as`, `kin`, `by` …) is none: most words are told so by length alone. */
+const LONGEST_CUE_WORD = Math.max(...[...TITLES, ...BARE_TITLES, ...CAPITAL_TITLES, ...WORD_CUES.keys(), 'as', 'kin', 'by', 'with', 'to'].map((w) => w.length));
 
 /** The run before run `i` in lower case when only blanks separate them, else null. */
 function wordBefore(text: string, runs: readonly Run[], i: number): string | null {
@@ -272,15 +277,13 @@ function withRunBefore(text: string, runs: readonly Run[], i: number): string {
 
 function cueAt(text: string, runs: readonly Run[], i: number): Cue | null {
   const run = runs[i]!;
-  if (run.kind !== 'letters') return null;
+  if (run.kind !== 'letters' || run.text.length > LONGEST_CUE_WORD) return null;
   if (BARE_TITLES.has(run.text)) return { kind: 'bare-title', label: run.text };
   if (TITLES.has(run.text)) return { kind: 'title', label: run.text };
   if (CAPITAL_TITLES.has(run.text)) {
     const prevWord = wordBefore(text, runs, i);
     return prevWord !== null && BEFORE_CAPITAL_ABBREVIATION.has(prevWord) ? null : { kind: 'capital-title', label: run.text };
   }
-  // Most words are no cue: tell them without a lower-case copy or a look at the word before.
-  if (run.text.length > LONGEST_CUE_WORD) return null;
   const lower = run.text.toLowerCase();
   // All-capital words are abbreviations, not cues (`PT` physiotherapy), except `NOK`. (A word
   // starting in lower case is in capitals no more.)
@@ -294,15 +297,12 @@ function cueAt(text: string, runs: readonly Run[], i: number): Cue | null {
     const prevWord = wordBefore(text, runs, i);
     if (prevWord !== null && NOT_PERSON_NAME.has(prevWord)) return null;
   }
-  if (NAMING_WORDS.has(lower)) return { kind: 'naming', label: run.text };
-  if (RELATIVES.has(lower)) return { kind: 'relative', label: run.text };
-  if (OTHER_STRONG_WORDS.has(lower)) return { kind: 'strong', label: run.text };
   if (lower === 'by' || lower === 'with' || lower === 'to') {
     const prevWord = wordBefore(text, runs, i);
     return prevWord !== null && VERBS_BEFORE_PREPOSITION.has(prevWord) ? { kind: 'weak', label: withRunBefore(text, runs, i) } : null;
   }
-  if (WEAK_WORDS.has(lower)) return { kind: 'weak', label: run.text };
-  return null;
+  const kind = WORD_CUES.get(lower);
+  return kind === undefined ? null : { kind, label: run.text };
 }
 
 /**
