@@ -4,6 +4,12 @@
 // Berlin oxygenation bands with PEEP ≥ 5 cmH2O (ARDS Definition Task Force, JAMA 2012, from memory).
 import { describe, expect, it } from 'vitest';
 import { checkNote } from '../../server/src/core/check-note';
+import { readFileSync } from 'node:fs';
+import { DeriveContext } from '../../server/src/core/derive/context';
+import { DERIVED } from '../../server/src/core/derive/registry';
+import { FIELDS } from '../../server/src/core/fields/registry';
+import { withDefaults } from '../../server/src/core/settings';
+import type { Kept } from '../../server/src/core/util/small-store';
 import { derivation, readings } from './helpers';
 
 describe('readings of a timepoint without a gas', () => {
@@ -83,5 +89,52 @@ describe('settings carried from two lines', () => {
     const note = ['@ 08:00', 'oxygen niv ipap 14, epap 6, fio2 0.5', '@ 09:00', 'abg 7.36/44/90/24.4', '@ 10:00', 'oxygen niv ipap 14, epap 6, fio2 0.5', 'abg 7.36/44/90/24.4'].join('\n');
     expect(readings(note, {}, 1)['oxygenation-band']).toMatch(/with EPAP 6 cmH2O \(FiO2 and EPAP carried from line 2\): consistent/);
     expect(readings(note, {}, 2)['oxygenation-band']).toMatch(/with EPAP 6 cmH2O: consistent/);
+  });
+});
+
+describe('a gas line without a gas', () => {
+  it('gives no readings (a lactate alone)', () => {
+    expect(derivation('@ 08:00\nabg lactate 2.1').interpretations).toEqual([]);
+  });
+});
+
+describe('what a derivation context reads of the values in force', () => {
+  const table = { list: DERIVED, slots: new Map(DERIVED.map((d, i) => [d.id, i])) };
+  const samples = ['icu-ventilated-lung-injury', 'summit-hut-evacuation', 'home-oxygen-exacerbation'].map((n) => readFileSync(`samples/${n}.pneu`, 'utf8'));
+
+  it('agrees with the values in force, whether a field is read before or after it is asked about', () => {
+    for (const text of samples) {
+      const { analysis, settings } = checkNote(text);
+      for (const tp of analysis.timeline.timepoints) {
+        const askedFirst = new DeriveContext(tp, settings, table);
+        const readFirst = new DeriveContext(tp, settings, table);
+        for (const f of FIELDS) {
+          const here = tp.values.originOf(f.id) === 'here';
+          const inForce = tp.values.get(f.id) ?? null;
+          expect(askedFirst.statedHere(f.id), `${f.id} at ${tp.label}`).toBe(here);
+          expect(askedFirst.input(f.id)).toEqual(inForce);
+          expect(readFirst.input(f.id)).toEqual(inForce);
+          expect(readFirst.statedHere(f.id), `${f.id} at ${tp.label}`).toBe(here);
+          // Asked again: the same answers, and the same term object for the same name.
+          expect(readFirst.statedHere(f.id)).toBe(here);
+          expect(readFirst.field(f.id)).toBe(readFirst.field(f.id));
+        }
+      }
+    }
+  });
+
+  it('keeps each memo once, the first and the others, also one asked for while another is computed', () => {
+    const tp = checkNote('@ 08:00\nabg 7.40/40/90/24').analysis.timeline.timepoints[0]!;
+    const c = new DeriveContext(tp, withDefaults(), table);
+    const computed = { a: 0, b: 0, c: 0 };
+    const b: Kept<number, DeriveContext> = { name: 'b', compute: () => 10 + ++computed.b };
+    const a: Kept<number, DeriveContext> = { name: 'a', compute: (ctx) => ctx.memo(b) + 100 + ++computed.a };
+    const third: Kept<string | undefined, DeriveContext> = { name: 'c', compute: () => (++computed.c, undefined) };
+    expect(c.memo(a)).toBe(112);
+    expect(c.memo(b)).toBe(11);
+    expect(c.memo(a)).toBe(112);
+    expect(c.memo(third)).toBeUndefined();
+    expect(c.memo(third)).toBeUndefined();
+    expect(computed).toEqual({ a: 1, b: 1, c: 1 });
   });
 });

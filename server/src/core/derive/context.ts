@@ -98,18 +98,35 @@ type Evaluated = DerivedValue | MissingValue | NotApplicable | null;
 /** Marks a slot that is being computed (guards against a cycle). */
 const IN_PROGRESS = 0;
 
+/**
+ * What a context has read of one field: its value in force, whether it is stated here, and the
+ * term formulas read it as, each filled in when first asked. The records of a context form a
+ * list (newest first), searched as a `SmallStore` is: a gas asks about a dozen fields, and one
+ * record each costs less than a store per question growing through its tables.
+ */
+class FieldRead {
+  /** The value in force (null: none); undefined until read. */
+  input: InputValue | null | undefined = undefined;
+  /** Whether it is stated at this timepoint; undefined until asked. */
+  here: boolean | undefined = undefined;
+  /** The term last read (several formulas read one input under one name). */
+  term: Term | null = null;
+
+  constructor(
+    readonly id: string,
+    readonly next: FieldRead | null,
+  ) {}
+}
+
 export class DeriveContext {
   /** Results by slot: undefined until computed. Arrays, not maps: a big note has tens of thousands of contexts. */
   private results: (Evaluated | typeof IN_PROGRESS | undefined)[] | null = null;
+  /** The first value kept by `memo` (the acid–base classification, the only one today), then a store for more. */
+  private firstKept: Kept<unknown, DeriveContext> | null = null;
+  private firstValue: unknown = undefined;
   private memos: SmallStore<Kept<unknown, DeriveContext>, unknown> | null = null;
-  private terms: SmallStore<string, Term> | null = null;
-  /** Inputs read so far (null: not in force). A read of the values in force builds the value. */
-  private inputs: SmallStore<string, InputValue | null> | null = null;
-  /**
-   * Whether a field is stated here, by field, as asked so far: every definition asks about its
-   * anchors, and each question searches the timepoint's stated values and settings held.
-   */
-  private here: SmallStore<string, boolean> | null = null;
+  /** The fields read so far, newest first. */
+  private reads: FieldRead | null = null;
 
   constructor(
     readonly timepoint: Timepoint,
@@ -119,30 +136,39 @@ export class DeriveContext {
 
   /** A value computed once per timepoint and shared by several definitions (e.g. the acid–base classification). */
   memo<T>(kept: Kept<T, DeriveContext>): T {
-    return keptFor((this.memos ??= new SmallStore()), kept, this);
+    if (this.firstKept === kept) return this.firstValue as T;
+    if (this.firstKept !== null || this.memos !== null) return keptFor((this.memos ??= new SmallStore()), kept, this);
+    const value = kept.compute(this);
+    // Another value kept while this one was computed took the first place: this one goes to the store.
+    if (this.firstKept === null) {
+      this.firstKept = kept;
+      this.firstValue = value;
+    } else (this.memos ??= new SmallStore()).set(kept, value);
+    return value;
+  }
+
+  /** The record of what was read of a field, made on first use. */
+  private read(id: string): FieldRead {
+    for (let r = this.reads; r !== null; r = r.next) if (r.id === id) return r;
+    return (this.reads = new FieldRead(id, this.reads));
   }
 
   /** The value in force for a field, read once per context. */
   input(id: string): InputValue | null {
-    const inputs = (this.inputs ??= new SmallStore());
-    const known = inputs.get(id);
-    if (known !== undefined) return known;
-    const read = this.timepoint.values.get(id) ?? null;
-    inputs.set(id, read);
-    return read;
+    const r = this.read(id);
+    if (r.input !== undefined) return r.input;
+    return (r.input = this.timepoint.values.get(id) ?? null);
   }
 
   /** A usable stated value in force, as a formula input. */
   field(id: string, name?: string): Term | null {
-    const input = this.input(id);
+    const r = this.read(id);
+    const input = r.input !== undefined ? r.input : (r.input = this.timepoint.values.get(id) ?? null);
     if (!input || !input.stated.usable || input.stated.value === null) return null;
     // Several formulas read the same input under the same name: one term object serves them.
-    const terms = (this.terms ??= new SmallStore());
-    const known = terms.get(id);
+    const known = r.term;
     if (known && (name === undefined ? known.name === defaultTermName(id) : known.name === name)) return known;
-    const term = termOf(input, name);
-    terms.set(id, term);
-    return term;
+    return (r.term = termOf(input, name));
   }
 
   /**
@@ -168,13 +194,11 @@ export class DeriveContext {
 
   /** Whether a field is stated at this timepoint (not carried). */
   statedHere(id: string): boolean {
-    const here = (this.here ??= new SmallStore());
-    const known = here.get(id);
-    if (known !== undefined) return known;
-    // Asked of the values in force without building the value (most fields asked about are never read).
-    const answer = this.timepoint.values.originOf(id) === 'here';
-    here.set(id, answer);
-    return answer;
+    const r = this.read(id);
+    if (r.here !== undefined) return r.here;
+    // From the value when it was read; else asked of the values in force without building the value
+    // (most fields asked about are never read).
+    return (r.here = r.input !== undefined ? r.input !== null && r.input.origin.kind === 'here' : this.timepoint.values.originOf(id) === 'here');
   }
 
   /** Another derived value, computed once; null when it cannot be computed here. */

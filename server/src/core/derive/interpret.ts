@@ -15,6 +15,8 @@ import { isAboveAlveolar } from './gas-exchange';
 import type { DeriveContext, Term } from './context';
 import type { DerivedValue, Interpretation, InterpretationTopic } from './model';
 import { NONE } from '../util/lists';
+import { fieldById } from '../fields/registry';
+import type { SectionId } from '../fields/sections';
 
 /** PaO2 below this (mmHg) grades hypoxaemia as severe (common practice, no source). */
 export const SEVERE_HYPOXAEMIA_MMHG = 40;
@@ -214,20 +216,17 @@ class GasFacts {
   }
 }
 
+/** The sections a PaO2, PaCO2 or pH can be stated in (the blood gas line). */
+const GAS_SECTIONS: readonly SectionId[] = [...new Set(['pao2', 'paco2', 'ph'].flatMap((id) => fieldById(id)?.sections ?? []))];
+
 /** Whether a PaO2, PaCO2 or pH is stated at this timepoint: the readings are of a gas stated here. */
 function gasStatedHere(c: DeriveContext): boolean {
-  // Most timepoints state no gas: asked of the few values stated here before the values in force
-  // (a field stated here is among them, so one that is not cannot be stated here).
+  // Most timepoints state no gas. A field stated here is among the values stated here, on a line of
+  // one of its sections: without such a line, the values in force need not be asked.
   const stated = c.timepoint.stated;
-  let any = false;
-  for (let i = 0; i < stated.length; i++) {
-    const id = stated[i]!.fieldId;
-    if (id === 'pao2' || id === 'paco2' || id === 'ph') {
-      any = true;
-      break;
-    }
-  }
-  return any && (c.statedHere('pao2') || c.statedHere('paco2') || c.statedHere('ph'));
+  let gasLine = false;
+  for (let i = 0; i < stated.length && !gasLine; i++) gasLine = GAS_SECTIONS.includes(stated[i]!.section);
+  return gasLine && (c.statedHere('pao2') || c.statedHere('paco2') || c.statedHere('ph'));
 }
 
 export function interpret(c: DeriveContext, settings: Settings): readonly Interpretation[] {
@@ -419,7 +418,8 @@ function acidBaseNotReadText(g: GasFacts): string {
 
 function acidBaseReadingText(g: GasFacts): string {
   const { c, settings } = g;
-  const gapCorrected = c.derivedValue('anion_gap_albumin_corrected') !== null;
+  // Named only beside an anion gap: without one, the correction is not asked for.
+  const gapCorrected = g.cls!.anionGap !== null && c.derivedValue('anion_gap_albumin_corrected') !== null;
   const ph = c.field('ph')?.value ?? NaN;
   const hco3 = c.field('hco3')?.value ?? NaN;
   return acidBaseText(g.cls!, g.gas, { ph, paco2: g.paco2?.value ?? NaN, hco3, hypercapniaAboveMmhg: settings.hypercapniaAboveMmhg, co2Resolution: g.co2Resolution, gapCorrected });

@@ -35,7 +35,8 @@ export class SmallStore<K, V> {
   }
 
   clear(): void {
-    this.entries.length = 0;
+    // Most stores are cleared while empty (a timepoint's shared values, where no check shared one).
+    if (this.entries.length !== 0) this.entries.length = 0;
   }
 }
 
