@@ -203,10 +203,20 @@ function twoDigitYearAfter(text: string, dayGap: string, month: Run, yearRun: Ru
   return !isCapitals(month.text) && !joinedNumber(text, yearRun.end, 1) && !followedByUnit(text, yearRun.end);
 }
 
+/**
+ * Whether one of the two runs on either side of run `i` holds digits: the day (`4 March`, `4th of
+ * March`, `March 4`) or the year (`Mar 2026`, `March 4, 2026`) of a written date is there, so a
+ * month with none is no date (most words are told so without a look at their letters).
+ */
+function digitsNear(runs: readonly Run[], i: number): boolean {
+  for (let k = Math.max(0, i - 2); k <= i + 2 && k < runs.length; k++) if (k !== i && runs[k]!.kind !== 'letters') return true;
+  return false;
+}
+
 function writtenDates(text: string, runs: readonly Run[], out: PrivacyMatch[]): void {
   for (let i = 0; i < runs.length; i++) {
     const month = runs[i]!;
-    if (monthOf(month) === null) continue;
+    if (!digitsNear(runs, i) || monthOf(month) === null) continue;
     let start = month.start;
     let end = month.end;
     let found = false;

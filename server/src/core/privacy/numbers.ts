@@ -295,10 +295,13 @@ function mixedIdentifiers(text: string, runs: readonly Run[], out: PrivacyMatch[
   }
 }
 
-/** Phone and record numbers in `text`, whose runs are `runs`. */
-export function findNumberIdentifiers(text: string, runs: readonly Run[]): PrivacyMatch[] {
+/**
+ * Phone and record numbers in `text`, whose runs are `runs` and which holds `digits` digits (the
+ * groups of digits are read only when there are enough for one identifier).
+ */
+export function findNumberIdentifiers(text: string, runs: readonly Run[], digits: number): PrivacyMatch[] {
   const out: PrivacyMatch[] = [];
-  digitIdentifiers(text, out);
+  if (digits >= MIN_DIGITS) digitIdentifiers(text, out);
   mixedIdentifiers(text, runs, out);
   return out;
 }

@@ -46,7 +46,7 @@ export function scanPart(source: string, from: number, to: number): readonly Pri
   const all: PrivacyMatch[] = [];
   if (input.includes('@')) pushAll(all, findEmails(input));
   if (digits >= 1) pushAll(all, findDates(input, runs));
-  if (digits >= 4) pushAll(all, findNumberIdentifiers(input, runs));
+  if (digits >= 4) pushAll(all, findNumberIdentifiers(input, runs, digits));
   if (digits >= 2) pushAll(all, findPostalCodes(input, runs));
   pushAll(all, findNames(input, runs));
   if (all.length === 0) return NONE;
