@@ -28,6 +28,11 @@ describe('the smallest text each detector needs', () => {
     expect(found('september 4')).toEqual([['calendar-date', 'september 4', null]]);
     expect(found('May 4')).toEqual([['calendar-date', 'May 4', null]]);
     expect(found('4 may')).toEqual([]);
+    // The day or the year may stand two runs from the month, and no further.
+    expect(found('the 4th of March')).toEqual([['calendar-date', '4th of March', null]]);
+    expect(found('March 4, 2026')).toEqual([['calendar-date', 'March 4, 2026', null]]);
+    expect(found('Mar 2026')).toEqual([['calendar-date', 'Mar 2026', null]]);
+    expect(found('March was 4')).toEqual([]);
     expect(found('Septembers 4')).toEqual([]);
   });
 
@@ -37,6 +42,10 @@ describe('the smallest text each detector needs', () => {
     // Four digits make no identifier, whatever the cue.
     expect(found('mrn 1234')).toEqual([]);
     expect(found('mrn 12 34')).toEqual([]);
+    expect(found('mrn ab123')).toEqual([]);
+    // Five digits in groups are enough.
+    expect(found('mrn 12 345')).toEqual([['record-number', '12 345', 'mrn']]);
+    expect(found('id x1234 12')).toEqual([['record-number', 'x1234', 'id']]);
   });
 
   it('a phone number made of groups of fewer than five digits each', () => {
