@@ -272,12 +272,10 @@ function birthYears(text: string, runs: readonly Run[], out: PrivacyMatch[]): vo
   }
 }
 
-/** Dates and dates of birth in `text`, whose runs are `runs`. */
-export function findDates(text: string, runs: readonly Run[]): PrivacyMatch[] {
-  const out: PrivacyMatch[] = [];
+/** Adds the dates and dates of birth in `text` (whose runs are `runs`) to `out`. */
+export function findDates(text: string, runs: readonly Run[], out: PrivacyMatch[]): void {
   numericDates(text, runs, out);
   compactDates(text, runs, out);
   writtenDates(text, runs, out);
   birthYears(text, runs, out);
-  return out;
 }

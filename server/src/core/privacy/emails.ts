@@ -24,8 +24,8 @@ function isDomainCharAt(text: string, i: number): boolean {
   return isAsciiAlnumAt(text, i) || text.charAt(i) === '.' || text.charAt(i) === '-';
 }
 
-export function findEmails(text: string): PrivacyMatch[] {
-  const out: PrivacyMatch[] = [];
+/** Adds the e-mail addresses in `text` to `out`. */
+export function findEmails(text: string, out: PrivacyMatch[]): void {
   let from = 0;
   for (;;) {
     const at = text.indexOf('@', from);
@@ -52,5 +52,4 @@ export function findEmails(text: string): PrivacyMatch[] {
     out.push(match('email', text, start, end, null));
     from = end;
   }
-  return out;
 }

@@ -11,7 +11,8 @@
  *   numbers.ts (phone and record numbers), emails.ts, postal-codes.ts; text.ts holds the
  *   shared character and word helpers, quantities.ts the test for a unit after a number.
  * May import: ../syntax/tree (types) and ../fields (registries). Only checks/privacy.ts imports it.
- * To add a detector: write `findX(text): PrivacyMatch[]` in its own file, add its kind to
+ * To add a detector: write `findX(text, runs, out)` in its own file (it adds what it finds to
+ * `out`; `runs` are the text's runs, read once for every detector), add its kind to
  * types.ts (placeholder and priority), call it from scan.ts, give it a check in
  * checks/privacy.ts, and add true and false positives to tests/privacy.
  *

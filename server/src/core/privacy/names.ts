@@ -442,9 +442,8 @@ function lastCapital(text: string): number {
   return k;
 }
 
-/** Names in `text`, whose runs are `runs`. */
-export function findNames(text: string, runs: readonly Run[]): PrivacyMatch[] {
-  const out: PrivacyMatch[] = [];
+/** Adds the names in `text` (whose runs are `runs`) to `out`. */
+export function findNames(text: string, runs: readonly Run[], out: PrivacyMatch[]): void {
   // A name starts with a capital after its cue: the runs from the last capital on cue no name.
   const capital = lastCapital(text);
   // Found when a relative with a mark first needs it (most texts have none).
@@ -512,5 +511,4 @@ export function findNames(text: string, runs: readonly Run[]): PrivacyMatch[] {
     out.push(match('name', text, words[0]!.start, words[words.length - 1]!.end, found.label));
     i = j - 1;
   }
-  return out;
 }

@@ -296,12 +296,10 @@ function mixedIdentifiers(text: string, runs: readonly Run[], out: PrivacyMatch[
 }
 
 /**
- * Phone and record numbers in `text`, whose runs are `runs` and which holds `digits` digits (the
- * groups of digits are read only when there are enough for one identifier).
+ * Adds the phone and record numbers in `text` to `out`: `runs` are its runs, and it holds
+ * `digits` digits (the groups of digits are read only when there are enough for one identifier).
  */
-export function findNumberIdentifiers(text: string, runs: readonly Run[], digits: number): PrivacyMatch[] {
-  const out: PrivacyMatch[] = [];
+export function findNumberIdentifiers(text: string, runs: readonly Run[], digits: number, out: PrivacyMatch[]): void {
   if (digits >= MIN_DIGITS) digitIdentifiers(text, out);
   mixedIdentifiers(text, runs, out);
-  return out;
 }

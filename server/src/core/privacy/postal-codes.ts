@@ -87,9 +87,8 @@ function standsAlone(text: string, start: number, end: number): boolean {
   return true;
 }
 
-/** Postal codes in `text`, whose runs are `runs`. */
-export function findPostalCodes(text: string, runs: readonly Run[]): PrivacyMatch[] {
-  const out: PrivacyMatch[] = [];
+/** Adds the postal codes in `text` (whose runs are `runs`) to `out`. */
+export function findPostalCodes(text: string, runs: readonly Run[], out: PrivacyMatch[]): void {
   // Each shape below reads the cue (`isPostcodeCue`) only once the run has that shape.
   for (let i = 0; i < runs.length; i++) {
     const a = runs[i]!;
@@ -132,5 +131,4 @@ export function findPostalCodes(text: string, runs: readonly Run[]): PrivacyMatc
       if (cue !== null || (stateOk && placeOk)) out.push(match('postal-code', text, a.start, a.end, cue ?? state?.text ?? null));
     }
   }
-  return out;
 }

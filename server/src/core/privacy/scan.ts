@@ -10,7 +10,7 @@ import { findNumberIdentifiers } from './numbers';
 import { findPostalCodes } from './postal-codes';
 import { KIND_PRIORITY, type PrivacyMatch } from './types';
 import { isAsciiLowerAt, runsOf } from './text';
-import { NONE, pushAll } from '../util/lists';
+import { NONE } from '../util/lists';
 
 /** Longer lines are scanned only up to this many characters (a note line is far shorter). */
 export const MAX_SCAN_LENGTH = 10_000;
@@ -44,11 +44,11 @@ export function scanPart(source: string, from: number, to: number): readonly Pri
   // Names need a capital after a cue, which `findNames` looks for itself.
   const runs = runsOf(input);
   const all: PrivacyMatch[] = [];
-  if (input.includes('@')) pushAll(all, findEmails(input));
-  if (digits >= 1) pushAll(all, findDates(input, runs));
-  if (digits >= 4) pushAll(all, findNumberIdentifiers(input, runs, digits));
-  if (digits >= 2) pushAll(all, findPostalCodes(input, runs));
-  pushAll(all, findNames(input, runs));
+  if (input.includes('@')) findEmails(input, all);
+  if (digits >= 1) findDates(input, runs, all);
+  if (digits >= 4) findNumberIdentifiers(input, runs, digits, all);
+  if (digits >= 2) findPostalCodes(input, runs, all);
+  findNames(input, runs, all);
   if (all.length === 0) return NONE;
   all.sort((a, b) => a.span.start - b.span.start || (b.span.end - b.span.start) - (a.span.end - a.span.start) || KIND_PRIORITY[b.kind] - KIND_PRIORITY[a.kind]);
   // Keep the best match of each overlapping cluster: a later match replaces the kept one only
