@@ -83,6 +83,10 @@ describe('the smallest text each detector needs', () => {
     // A capital before the cue is no name after it.
     expect(found('Seen by patel')).toEqual([]);
     expect(found('Mrs June Roe')).toEqual([['name', 'June Roe', 'Mrs']]);
+    // The name may start two runs after its cue.
+    expect(found('name is Jane Roe')).toEqual([['name', 'Jane Roe', 'name']]);
+    expect(found('name was ROE')).toEqual([['name', 'ROE', 'name']]);
+    expect(found('Mr J. Roe')).toEqual([['name', 'J. Roe', 'Mr']]);
   });
 
   it('the longest cue words count, and capitals are no cue but NOK', () => {

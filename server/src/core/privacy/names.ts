@@ -435,20 +435,19 @@ function firstHistoryHeading(runs: readonly Run[]): number {
   return runs.length;
 }
 
-/** The index of the last character that may be a capital (`mayBeUpperAt`), or -1 when none is. */
-function lastCapital(text: string): number {
-  let k = text.length - 1;
-  while (k >= 0 && !mayBeUpperAt(text, k)) k--;
-  return k;
+/** Whether the run is there and starts with what may be a capital (`mayBeUpperAt`). */
+function startsWithCapital(text: string, run: Run | undefined): boolean {
+  return run !== undefined && mayBeUpperAt(text, run.start);
 }
 
 /** Adds the names in `text` (whose runs are `runs`) to `out`. */
 export function findNames(text: string, runs: readonly Run[], out: PrivacyMatch[]): void {
-  // A name starts with a capital after its cue: the runs from the last capital on cue no name.
-  const capital = lastCapital(text);
   // Found when a relative with a mark first needs it (most texts have none).
   let heading = -1;
-  for (let i = 0; i < runs.length && runs[i]!.end < capital; i++) {
+  for (let i = 0; i < runs.length; i++) {
+    // A name's first word starts with a capital, one run after its cue or two (`name is Jane
+    // Roe`): most runs are no cue of a name, told so without a look at their letters.
+    if (!startsWithCapital(text, runs[i + 1]) && !startsWithCapital(text, runs[i + 2])) continue;
     const found = cueAt(text, runs, i);
     if (!found) continue;
     const cue = runs[i]!;
