@@ -43,15 +43,16 @@ export function classification(c: DeriveContext): AcidBaseClassification | null 
 const CLASSIFICATION: Kept<AcidBaseClassification | null, DeriveContext> = {
   name: 'acid-base classification',
   compute(c) {
-    const ph = c.field('ph');
-    const paco2 = c.field('paco2');
-    const hco3 = c.field('hco3');
-    if (!ph || !paco2 || !hco3) return null;
+    // Numbers only: the classification names no inputs.
+    const ph = c.number('ph');
+    const paco2 = c.number('paco2');
+    const hco3 = c.number('hco3');
+    if (ph === null || paco2 === null || hco3 === null) return null;
     // The anion gap needs a sodium and a chloride: without them (most gases) neither it nor its
     // correction for albumin is worked out for the classification (nor what each lacks).
-    const gap = c.field('na') !== null && c.field('cl') !== null ? c.derivedValue('anion_gap_albumin_corrected') ?? c.derivedValue('anion_gap') : null;
+    const gap = c.number('na') !== null && c.number('cl') !== null ? c.derivedValue('anion_gap_albumin_corrected') ?? c.derivedValue('anion_gap') : null;
     // The delta ratio takes the bicarbonate the gap was computed with (serum when the laboratory gave it).
-    return classifyAcidBase({ ph: ph.value, paco2Mmhg: paco2.value, hco3MmolL: hco3.value, anionGapMmolL: gap?.value, gapHco3MmolL: gap ? bicarbonate(c)?.value : undefined, paco2ResolutionMmhg: c.writtenResolutionMmhg('paco2') });
+    return classifyAcidBase({ ph, paco2Mmhg: paco2, hco3MmolL: hco3, anionGapMmolL: gap?.value, gapHco3MmolL: gap ? bicarbonate(c)?.value : undefined, paco2ResolutionMmhg: c.writtenResolutionMmhg('paco2') });
   },
 };
 

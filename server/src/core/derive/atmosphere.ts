@@ -1,7 +1,7 @@
 /** Derived values of the air breathed: barometric pressure and inspired PO2. */
 import { SOURCES, WATER_VAPOUR_37C_MMHG, barometricFromAltitudeStandard, barometricFromAltitudeWest, inspiredPo2Humidified, waterVapourPressureMmhg } from '../physiology';
 import { formatNumber } from '../util/format';
-import { defineDerived, type DeriveContext, type Term } from './context';
+import { defineDerived, type DeriveContext, type Term, type ValueExtras } from './context';
 
 export const SEA_LEVEL_MMHG = 760;
 
@@ -17,20 +17,23 @@ export const barometric = defineDerived({
   anchors: ['barometric', 'altitude', 'pao2'],
   compute(c) {
     const stated = c.field('barometric', 'PB');
-    if (stated) return c.value(stated.value, [stated], { formula: 'PB as stated' });
+    if (stated) return c.value(stated.value, [stated], PB_STATED);
     const alt = c.field('altitude', 'altitude');
     if (alt) {
       const west = c.settings.barometricModel === 'west';
       const pb = west ? barometricFromAltitudeWest(alt.value) : barometricFromAltitudeStandard(alt.value);
-      return c.value(pb, [alt], {
-        formula: west ? 'exp(6.63268 − 0.1112 × {altitude}/1000 − 0.00149 × ({altitude}/1000)²)' : '760 × (1 − 2.25577×10⁻⁵ × {altitude})^5.25588',
-        notes: [west ? 'model atmosphere for high-altitude physiology (West 1996)' : 'U.S. Standard Atmosphere 1976'],
-      });
+      return c.value(pb, [alt], west ? PB_WEST : PB_STANDARD);
     }
-    const sea: Term = { name: 'PB', value: SEA_LEVEL_MMHG, unit: 'mmHg', decimals: 0, origin: { kind: 'default', description: 'sea level assumed: no place stated' } };
-    return c.value(SEA_LEVEL_MMHG, [sea], { formula: 'PB assumed at sea level', notes: ['no altitude or barometric pressure in the note: sea level assumed'] });
+    return c.value(SEA_LEVEL_MMHG, SEA_LEVEL_TERMS, PB_SEA_LEVEL);
   },
 });
+
+// The formulas and notes of the barometric pressure, and the sea-level input: one object each for every timepoint.
+const PB_STATED: ValueExtras = { formula: 'PB as stated' };
+const PB_WEST: ValueExtras = { formula: 'exp(6.63268 − 0.1112 × {altitude}/1000 − 0.00149 × ({altitude}/1000)²)', notes: ['model atmosphere for high-altitude physiology (West 1996)'] };
+const PB_STANDARD: ValueExtras = { formula: '760 × (1 − 2.25577×10⁻⁵ × {altitude})^5.25588', notes: ['U.S. Standard Atmosphere 1976'] };
+const PB_SEA_LEVEL: ValueExtras = { formula: 'PB assumed at sea level', notes: ['no altitude or barometric pressure in the note: sea level assumed'] };
+const SEA_LEVEL_TERMS: readonly Term[] = [{ name: 'PB', value: SEA_LEVEL_MMHG, unit: 'mmHg', decimals: 0, origin: { kind: 'default', description: 'sea level assumed: no place stated' } }];
 
 /** Where PH2O came from, as the hover says it: the setting, and the temperature used or left out. */
 const FIXED_WHY = 'humidified at 37 °C, the pinned convention (setting waterVapour: fixed)';
@@ -56,6 +59,20 @@ const PH2O_NO_TEMPERATURE: Term = {
 };
 
 /**
+ * PH2O under the pinned convention at a timepoint that states a temperature (shown as `shown`),
+ * which it names as not used. Kept by temperature as written (few: a note's temperatures repeat),
+ * up to a bound: the key is user text.
+ */
+const FIXED_BESIDE: Map<string, Term> = new Map();
+function fixedBesideTemperature(shown: string): Term {
+  const known = FIXED_BESIDE.get(shown);
+  if (known !== undefined) return known;
+  const term: Term = { ...PH2O_FIXED, origin: { kind: 'default', description: `${FIXED_WHY}; the temperature ${shown} °C stated here is not used` } };
+  if (FIXED_BESIDE.size < 1000) FIXED_BESIDE.set(shown, term);
+  return term;
+}
+
+/**
  * The water vapour pressure term of the inspired PO2, or null when the temperature stated is
  * outside the range of Buck's equation (`body-temperature` only). `fixed` (the default): 47 mmHg
  * always, naming a temperature stated at the timepoint as not used; `body-temperature`: the
@@ -64,11 +81,7 @@ const PH2O_NO_TEMPERATURE: Term = {
 function waterVapourTerm(c: DeriveContext): Term | null {
   const here = c.statedHere('temp');
   const temp = here ? c.field('temp', 'temp') : null;
-  if (c.settings.waterVapour !== 'body-temperature') {
-    if (temp === null) return PH2O_FIXED;
-    const description = `${FIXED_WHY}; the temperature ${formatNumber(temp.value, temp.decimals)} °C stated here is not used`;
-    return { ...PH2O_FIXED, origin: { kind: 'default', description } };
-  }
+  if (c.settings.waterVapour !== 'body-temperature') return temp === null ? PH2O_FIXED : fixedBesideTemperature(formatNumber(temp.value, temp.decimals));
   if (temp === null) return PH2O_NO_TEMPERATURE;
   const ph2o = waterVapourPressureMmhg(temp.value);
   if (ph2o === null) return null;

@@ -172,6 +172,15 @@ export class DeriveContext {
   }
 
   /**
+   * The number of a usable stated value in force, where only the number is wanted (no term is
+   * made): null when `field` would give none.
+   */
+  number(id: string): number | null {
+    const input = this.input(id);
+    return input && input.stated.usable ? input.stated.value : null;
+  }
+
+  /**
    * How far (mmHg) a gas pressure in force can be from what it stands for when it was written in
    * kPa: half a unit of its last written decimal, one decimal at least (6.7 kPa stands for
    * 6.65–6.75 kPa, ± 0.375 mmHg). 0 for a pressure written in mmHg, which thresholds in mmHg take
@@ -308,15 +317,16 @@ function defaultTermName(fieldId: string): string {
 }
 
 function termOf(input: InputValue, name?: string): Term {
-  const field = fieldById(input.stated.fieldId);
+  const fieldId = input.stated.fieldId;
+  const field = fieldById(fieldId);
   const unit = input.stated.unit === null || input.stated.unit === 'fraction' || input.stated.unit === 'ph' ? '' : displayUnit(input.stated.unit);
   return {
-    name: name ?? defaultTermName(input.stated.fieldId),
+    name: name ?? field?.short ?? field?.aliases[0] ?? fieldId,
     value: input.stated.value ?? NaN,
     unit,
     decimals: field?.decimals ?? 1,
     origin: input.origin,
-    fieldId: input.stated.fieldId,
+    fieldId,
   };
 }
 

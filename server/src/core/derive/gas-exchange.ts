@@ -14,7 +14,7 @@ import {
   roxIndex,
   sfRatio,
 } from '../physiology';
-import { defineDerived, type DeriveContext, type Term } from './context';
+import { defineDerived, type DeriveContext, type Term, type ValueExtras } from './context';
 import { decimalsAgainst } from '../util/format';
 import { SEA_LEVEL_MMHG } from './atmosphere';
 
@@ -40,20 +40,46 @@ export const pao2Alveolar = defineDerived({
     const pio2 = c.derived('pio2', 'PiO2');
     const paco2 = c.field('paco2', 'PaCO2');
     if (!pio2 || !paco2) return c.missing([pio2, c.lacking('pio2')], [paco2, 'pco2']);
-    const rq: Term = { name: 'RQ', value: c.settings.respiratoryQuotient, unit: '', decimals: 2, origin: { kind: 'default', description: 'respiratory quotient (setting pneumark.respiratoryQuotient)' } };
+    const rq = rqTerm(c.settings.respiratoryQuotient);
     if (c.settings.alveolarEquation === 'full') {
       const fio2 = c.fio2();
       if (!fio2) return c.missing([fio2, c.fio2Need()]);
       const full = alveolarPo2FullSigned(fio2.value, pio2.value, paco2.value, rq.value);
-      return c.value(full, [pio2, paco2, fio2, rq], {
-        formula: '{PiO2} − {PaCO2} × ({FiO2} + (1 − {FiO2}) ÷ {RQ})',
-        notes: ['full alveolar gas equation (setting)', ...negativeNote(full)],
-      });
+      return c.value(full, [pio2, paco2, fio2, rq], isNegative(full) ? FULL_NEGATIVE : FULL);
     }
     const simplified = alveolarPo2SimplifiedSigned(pio2.value, paco2.value, rq.value);
-    return c.value(simplified, [pio2, paco2, rq], { notes: ['simplified alveolar gas equation', ...negativeNote(simplified)] });
+    return c.value(simplified, [pio2, paco2, rq], isNegative(simplified) ? SIMPLIFIED_NEGATIVE : SIMPLIFIED);
   },
 });
+
+/**
+ * The respiratory quotient as a formula input: one term for the setting's value (a one-entry memo:
+ * every timepoint of a note reads the same settings).
+ */
+let lastRq: Term | null = null;
+function rqTerm(value: number): Term {
+  if (lastRq === null || lastRq.value !== value) {
+    lastRq = { name: 'RQ', value, unit: '', decimals: 2, origin: { kind: 'default', description: 'respiratory quotient (setting pneumark.respiratoryQuotient)' } };
+  }
+  return lastRq;
+}
+
+/**
+ * A negative alveolar PO2 is kept (not dropped as out of domain): it is how the note's FiO2,
+ * pressure and PaCO2 contradict each other, and PN401 reports it.
+ */
+const NEGATIVE_NOTE = 'negative: no PaO2 is possible with this FiO2, pressure and PaCO2 (see PN401)';
+
+function isNegative(alveolar: number | null): boolean {
+  return alveolar !== null && alveolar < 0;
+}
+
+// The notes and formula of the alveolar PO2, one object each for every timepoint.
+const SIMPLIFIED: ValueExtras = { notes: ['simplified alveolar gas equation'] };
+const SIMPLIFIED_NEGATIVE: ValueExtras = { notes: ['simplified alveolar gas equation', NEGATIVE_NOTE] };
+const FULL_FORMULA = '{PiO2} − {PaCO2} × ({FiO2} + (1 − {FiO2}) ÷ {RQ})';
+const FULL: ValueExtras = { formula: FULL_FORMULA, notes: ['full alveolar gas equation (setting)'] };
+const FULL_NEGATIVE: ValueExtras = { formula: FULL_FORMULA, notes: ['full alveolar gas equation (setting)', NEGATIVE_NOTE] };
 
 export const aaGradientDef = defineDerived({
   id: 'aa_gradient',
@@ -79,14 +105,6 @@ export const aaGradientDef = defineDerived({
     return c.value(g, [pA, pa], upper === null ? undefined : { decimals: decimalsAgainst(g, 0, upper) });
   },
 });
-
-/**
- * A negative alveolar PO2 is kept (not dropped as out of domain): it is how the note's FiO2,
- * pressure and PaCO2 contradict each other, and PN401 reports it.
- */
-function negativeNote(alveolar: number | null): string[] {
-  return alveolar !== null && alveolar < 0 ? ['negative: no PaO2 is possible with this FiO2, pressure and PaCO2 (see PN401)'] : [];
-}
 
 const AGE_RULE_TEXT = {
   'age-over-4-plus-4': '{age} ÷ 4 + 4',

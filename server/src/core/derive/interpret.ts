@@ -224,9 +224,14 @@ function gasStatedHere(c: DeriveContext): boolean {
   // Most timepoints state no gas. A field stated here is among the values stated here, on a line of
   // one of its sections: without such a line, the values in force need not be asked.
   const stated = c.timepoint.stated;
-  let gasLine = false;
-  for (let i = 0; i < stated.length && !gasLine; i++) gasLine = GAS_SECTIONS.includes(stated[i]!.section);
-  return gasLine && (c.statedHere('pao2') || c.statedHere('paco2') || c.statedHere('ph'));
+  for (let i = 0; i < stated.length; i++) {
+    const section = stated[i]!.section;
+    // Compared one by one (`includes` on strings takes a slow path here).
+    for (let k = 0; k < GAS_SECTIONS.length; k++) {
+      if (section === GAS_SECTIONS[k]) return c.statedHere('pao2') || c.statedHere('paco2') || c.statedHere('ph');
+    }
+  }
+  return false;
 }
 
 export function interpret(c: DeriveContext, settings: Settings): readonly Interpretation[] {
@@ -412,7 +417,7 @@ function hypercapniaOnAirText(g: GasFacts): string {
 
 function acidBaseNotReadText(g: GasFacts): string {
   const { c } = g;
-  const stated = (id: string) => c.field(id)?.value ?? NaN;
+  const stated = (id: string) => c.number(id) ?? NaN;
   return `Acid–base not interpreted: the reported HCO3 ${formatNumber(stated('hco3'), HCO3_DECIMALS)} mmol/L differs from the ${formatNumber(g.cls!.consistency.calculatedHco3MmolL, HCO3_DECIMALS)} mmol/L that pH ${formatNumber(stated('ph'), PH_DECIMALS)} and PaCO2 ${g.gas.measured(stated('paco2'), c.writtenResolutionMmhg('paco2'))} give (see PN402), so neither the disorder nor its expected compensation is worked out.`;
 }
 
@@ -420,8 +425,8 @@ function acidBaseReadingText(g: GasFacts): string {
   const { c, settings } = g;
   // Named only beside an anion gap: without one, the correction is not asked for.
   const gapCorrected = g.cls!.anionGap !== null && c.derivedValue('anion_gap_albumin_corrected') !== null;
-  const ph = c.field('ph')?.value ?? NaN;
-  const hco3 = c.field('hco3')?.value ?? NaN;
+  const ph = c.number('ph') ?? NaN;
+  const hco3 = c.number('hco3') ?? NaN;
   return acidBaseText(g.cls!, g.gas, { ph, paco2: g.paco2?.value ?? NaN, hco3, hypercapniaAboveMmhg: settings.hypercapniaAboveMmhg, co2Resolution: g.co2Resolution, gapCorrected });
 }
 

@@ -486,12 +486,12 @@ function compensationFor(primary: PrimaryAcidBaseFinding, paco2: number, hco3: n
       // The response lowers PaCO2 in metabolic acidosis and raises it in metabolic alkalosis.
       const acidosis = primary === 'metabolic-acidosis';
       if (sideOf(paco2, range.high, paco2Resolution) > 0) {
-        return { compensation: acidosis ? 'insufficient' : 'excessive', expected, chronicity: null, additional: ['respiratory-acidosis'] };
+        return { compensation: acidosis ? 'insufficient' : 'excessive', expected, chronicity: null, additional: ONLY_RESPIRATORY_ACIDOSIS };
       }
       if (sideOf(paco2, range.low, paco2Resolution) < 0) {
-        return { compensation: acidosis ? 'excessive' : 'insufficient', expected, chronicity: null, additional: ['respiratory-alkalosis'] };
+        return { compensation: acidosis ? 'excessive' : 'insufficient', expected, chronicity: null, additional: ONLY_RESPIRATORY_ALKALOSIS };
       }
-      return { compensation: 'appropriate', expected, chronicity: null, additional: [] };
+      return { compensation: 'appropriate', expected, chronicity: null, additional: NO_DISORDERS };
     }
     case 'respiratory-acidosis':
     case 'respiratory-alkalosis': {
@@ -507,37 +507,57 @@ function compensationFor(primary: PrimaryAcidBaseFinding, paco2: number, hco3: n
       };
       const inAcute = within(hco3, acute);
       const inChronic = within(hco3, chronic);
-      if (inAcute && inChronic) return { compensation: 'appropriate', expected, chronicity: 'acute-or-chronic', additional: [] };
-      if (inAcute) return { compensation: 'appropriate', expected, chronicity: 'acute', additional: [] };
-      if (inChronic) return { compensation: 'appropriate', expected, chronicity: 'chronic', additional: [] };
+      if (inAcute && inChronic) return { compensation: 'appropriate', expected, chronicity: 'acute-or-chronic', additional: NO_DISORDERS };
+      if (inAcute) return { compensation: 'appropriate', expected, chronicity: 'acute', additional: NO_DISORDERS };
+      if (inChronic) return { compensation: 'appropriate', expected, chronicity: 'chronic', additional: NO_DISORDERS };
       // The response raises HCO3 in respiratory acidosis and lowers it in respiratory alkalosis.
       const acidosis = primary === 'respiratory-acidosis';
       if (hco3 > acute.high && hco3 > chronic.high) {
-        return { compensation: acidosis ? 'excessive' : 'insufficient', expected, chronicity: null, additional: ['metabolic-alkalosis'] };
+        return { compensation: acidosis ? 'excessive' : 'insufficient', expected, chronicity: null, additional: ONLY_METABOLIC_ALKALOSIS };
       }
       if (hco3 < acute.low && hco3 < chronic.low) {
-        return { compensation: acidosis ? 'insufficient' : 'excessive', expected, chronicity: null, additional: ['metabolic-acidosis'] };
+        return { compensation: acidosis ? 'insufficient' : 'excessive', expected, chronicity: null, additional: ONLY_METABOLIC_ACIDOSIS };
       }
       // Between the acute and the chronic range.
-      return { compensation: 'appropriate', expected, chronicity: 'intermediate', additional: [] };
+      return { compensation: 'appropriate', expected, chronicity: 'intermediate', additional: NO_DISORDERS };
     }
     default:
       return NOT_APPLICABLE;
   }
 }
 
-function primaryDisorders(primary: PrimaryAcidBaseFinding): AcidBaseDisorder[] {
+// Lists of disorders shared by every classification: the classification copies what it returns.
+const NO_DISORDERS: readonly AcidBaseDisorder[] = Object.freeze([]);
+const ONLY_RESPIRATORY_ACIDOSIS: readonly AcidBaseDisorder[] = Object.freeze(['respiratory-acidosis']);
+const ONLY_RESPIRATORY_ALKALOSIS: readonly AcidBaseDisorder[] = Object.freeze(['respiratory-alkalosis']);
+const ONLY_METABOLIC_ACIDOSIS: readonly AcidBaseDisorder[] = Object.freeze(['metabolic-acidosis']);
+const ONLY_METABOLIC_ALKALOSIS: readonly AcidBaseDisorder[] = Object.freeze(['metabolic-alkalosis']);
+const MIXED_ACIDOSIS: readonly AcidBaseDisorder[] = Object.freeze(['metabolic-acidosis', 'respiratory-acidosis']);
+const MIXED_ALKALOSIS: readonly AcidBaseDisorder[] = Object.freeze(['metabolic-alkalosis', 'respiratory-alkalosis']);
+
+function primaryDisorders(primary: PrimaryAcidBaseFinding): readonly AcidBaseDisorder[] {
   switch (primary) {
     case 'mixed-acidosis':
-      return ['metabolic-acidosis', 'respiratory-acidosis'];
+      return MIXED_ACIDOSIS;
     case 'mixed-alkalosis':
-      return ['metabolic-alkalosis', 'respiratory-alkalosis'];
+      return MIXED_ALKALOSIS;
     case 'normal':
     case 'undetermined':
-      return [];
-    default:
-      return [primary];
+      return NO_DISORDERS;
+    case 'metabolic-acidosis':
+      return ONLY_METABOLIC_ACIDOSIS;
+    case 'metabolic-alkalosis':
+      return ONLY_METABOLIC_ALKALOSIS;
+    case 'respiratory-acidosis':
+      return ONLY_RESPIRATORY_ACIDOSIS;
+    case 'respiratory-alkalosis':
+      return ONLY_RESPIRATORY_ALKALOSIS;
   }
+}
+
+/** Whether a disorder is among the primary ones or those added so far. */
+function identifiedIn(d: AcidBaseDisorder, fromPrimary: readonly AcidBaseDisorder[], additional: readonly AcidBaseDisorder[]): boolean {
+  return fromPrimary.includes(d) || additional.includes(d);
 }
 
 /**
@@ -574,21 +594,20 @@ export function classifyAcidBase(input: AcidBaseInput): AcidBaseClassification |
   const { compensation, expected, chronicity, additional: fromCompensation } = compensationFor(primary, paco2, hco3, resolution);
 
   const fromPrimary = primaryDisorders(primary);
-  const additional: AcidBaseDisorder[] = [...fromCompensation];
-  const identified = (d: AcidBaseDisorder): boolean => fromPrimary.includes(d) || additional.includes(d);
+  const additional: AcidBaseDisorder[] = fromCompensation.slice();
 
   let anionGapFinding: AnionGapFinding | null = null;
   if (gap !== undefined) {
     const high = gap > ANION_GAP_UPPER_NORMAL_MMOL_L;
     const ratio = deltaRatio(gap, gapHco3);
     const band = ratio === null ? null : deltaRatioBand(ratio);
-    const acidosisBefore = identified('metabolic-acidosis');
+    const acidosisBefore = identifiedIn('metabolic-acidosis', fromPrimary, additional);
     let kind: MetabolicAcidosisKind | null = null;
     if (high) {
       kind = band === 'normal-gap-acidosis' || band === 'mixed-high-and-normal-gap-acidosis' ? 'mixed-anion-gap' : 'high-anion-gap';
       if (!acidosisBefore) additional.push('metabolic-acidosis');
       const hco3HigherThanGapExplains = ratio === null || band === 'high-gap-acidosis-with-alkalosis';
-      if (hco3HigherThanGapExplains && !identified('respiratory-acidosis') && !identified('metabolic-alkalosis')) {
+      if (hco3HigherThanGapExplains && !identifiedIn('respiratory-acidosis', fromPrimary, additional) && !identifiedIn('metabolic-alkalosis', fromPrimary, additional)) {
         additional.push('metabolic-alkalosis');
       }
     } else if (acidosisBefore) {
@@ -597,7 +616,7 @@ export function classifyAcidBase(input: AcidBaseInput): AcidBaseClassification |
     anionGapFinding = { valueMmolL: gap, high, deltaRatio: ratio, deltaRatioBand: band, metabolicAcidosisKind: kind };
   }
 
-  const disorders: AcidBaseDisorder[] = [...fromPrimary];
+  const disorders: AcidBaseDisorder[] = fromPrimary.slice();
   for (const d of additional) if (!disorders.includes(d)) disorders.push(d);
   const singlePrimary = fromPrimary.length === 1;
 
