@@ -7,6 +7,7 @@ import { canonicalWord, FIELDS, keysInSection, type FieldDef } from '../fields/r
 import type { SectionId } from '../fields/sections';
 import { convert, unitById, unitsForSpelling, type UnitDef } from '../fields/units';
 import type { ItemNode, LineFix, PairValue } from '../syntax/tree';
+import { pairNumbers } from '../syntax/parser';
 import { formatNumber, wordList } from '../util/format';
 import { closest, editDistance } from '../util/suggest';
 import { doubtBoundsAt, softBoundsAt, unitsWithin, within, type BoundsContext } from './bounds';
@@ -102,11 +103,11 @@ export function readItem(item: ItemNode, section: SectionId, line: number, ctx: 
   if ((field.kind === 'pair') !== (kind === 'pair') || kind === 'word') return null; // shape problems are reported by the syntax checks
   const canonical = field.unit ? unitById(field.unit) : undefined;
   if (!canonical) return null;
-  // A pair's numbers are built when asked for: read them once.
-  const pairParts = kind === 'pair' ? (item.value as PairValue).parts : null;
+  // A pair's numbers are read again from the line when asked for: read them once, as values only.
+  const pairParts = kind === 'pair' ? pairNumbers(item.value as PairValue) : null;
   if (pairParts !== null && pairParts.length !== 2) return null; // `bp 120/80/60`: reported by the syntax checks
   const written = kind === 'number' ? item.number! : null;
-  const first = written ?? pairParts?.[0]?.value ?? 0;
+  const first = written ?? pairParts?.[0] ?? 0;
 
   // Which unit was the number written in?
   let readUnit: UnitDef | undefined;
@@ -132,12 +133,11 @@ export function readItem(item: ItemNode, section: SectionId, line: number, ctx: 
     if (value === null) return null;
     if (field.hard && !within(value, field.hard)) usable = false;
   } else {
-    // Of its exact length: an array grown by push keeps room for 17 numbers, and a big note keeps
-    // thousands of these.
-    const numbers = pairParts ?? [];
-    parts = new Array<number>(numbers.length);
-    for (let k = 0; k < numbers.length; k++) {
-      const c = convert(numbers[k]!.value, readUnit, canonical);
+    // The pair's numbers, converted in place: a list of its own, of its exact length (an array grown
+    // by push keeps room for 17 numbers, and a big note keeps thousands of these).
+    parts = pairParts ?? [];
+    for (let k = 0; k < parts.length; k++) {
+      const c = convert(parts[k]!, readUnit, canonical);
       if (c === null) return null;
       if (field.hard && !within(c, field.hard)) usable = false;
       parts[k] = c;

@@ -57,9 +57,15 @@ export class Word {
 /** Words reused from line to line, by their place in the line; a line longer than this gets words of its own beyond it. */
 const POOL: Word[] = [];
 const POOL_LIMIT = 4096;
-const NO_WORDS: readonly Word[] = Object.freeze([]);
-/** The words `wordsOf` handed out last. */
-let handedOut: readonly Word[] = NO_WORDS;
+/**
+ * The list `wordsOf` hands out, also reused from line to line: a list grown by push for every line
+ * of a big note would be some megabytes of garbage. Its length is set to each line's count of words
+ * but never to 0 (V8 would free its backing store, and the next line would grow a new one): a line
+ * without words gets its own empty list.
+ */
+const LIST: Word[] = [];
+/** How many words `wordsOf` handed out last. */
+let handedCount = 0;
 
 /**
  * What `wordsOf` saw of the line besides its words: whether two commas came with no word
@@ -74,18 +80,22 @@ export const LEXED: { doubledComma: boolean } = { doubledComma: false };
  * keeps its whole note alive): the parser calls this when it is done with a line.
  */
 export function releaseWords(): void {
-  for (let k = 0; k < handedOut.length; k++) handedOut[k]!.text = '';
-  handedOut = NO_WORDS;
+  // By the count handed out, not the list's length: a caller may have shortened the list (a full stop left out).
+  for (let k = 0; k < handedCount; k++) {
+    const word = k < POOL_LIMIT ? POOL[k] : LIST[k];
+    if (word) word.text = '';
+  }
+  handedCount = 0;
 }
 
 /**
- * The words of a line body, in a new list of reused words (see `Word`): valid until the next call.
- * `intern` may swap a word's text for an equal string kept elsewhere (the words of the format:
- * section names, keys, units), so the tree does not hold a copy of `hr` per line.
+ * The words of a line body, in a reused list of reused words (see `Word`, `LIST`): valid until the
+ * next call. `intern` may swap a word's text for an equal string kept elsewhere (the words of the
+ * format: section names, keys, units), so the tree does not hold a copy of `hr` per line.
  */
 export function wordsOf(body: string, from = 0, intern?: (text: string) => string): Word[] {
-  const words: Word[] = [];
-  handedOut = words;
+  const words = LIST;
+  let count = 0;
   let i = from;
   let sawComma = false;
   LEXED.doubledComma = false;
@@ -111,10 +121,9 @@ export function wordsOf(body: string, from = 0, intern?: (text: string) => strin
       i++;
     }
     const text = body.slice(start, i);
-    const k = words.length;
     let word: Word;
-    if (k < POOL_LIMIT) {
-      word = POOL[k] ?? (POOL[k] = new Word());
+    if (count < POOL_LIMIT) {
+      word = POOL[count] ?? (POOL[count] = new Word());
       word.text = intern ? intern(text) : text;
       word.start = start;
       word.end = i;
@@ -122,9 +131,14 @@ export function wordsOf(body: string, from = 0, intern?: (text: string) => strin
     } else {
       word = new Word(intern ? intern(text) : text, start, i, sawComma);
     }
-    words.push(word);
+    if (count < words.length) words[count] = word;
+    else words.push(word);
+    count++;
     sawComma = false;
   }
+  handedCount = count;
+  if (count === 0) return [];
+  if (words.length !== count) words.length = count;
   return words;
 }
 

@@ -307,33 +307,40 @@ function parseTimepoint(body: string, chunks: Word[], line: number, text: string
   // `@, 08:00`: a comma between `@` and the time; one between the time and the label is kept.
   if (first.afterComma || (first.text.length === 1 && chunks[1]?.afterComma)) strayCommas(body, chunks, first.text.length === 1, false, issues);
   const marker: Token = first.start === 0 ? MARKER_AT_LINE_START : token('@', first.start, first.start + 1);
-  // `@07:40` is read like `@ 07:40`.
-  const rest: Word[] = [];
-  if (first.text.length > 1) rest.push(new Word(first.text.slice(1), first.start + 1, first.end, false));
-  for (let k = 1; k < chunks.length; k++) rest.push(chunks[k]!);
+  // The words after the `@` are `chunks` from `at` (no list of their own). `@07:40` is read like
+  // `@ 07:40`: its word (reused for the next line anyway) becomes the time's.
+  const at = first.text.length > 1 ? 0 : 1;
+  if (at === 0) {
+    first.text = first.text.slice(1);
+    first.start++;
+    first.afterComma = false;
+  }
 
   // `@ 08:00.`: a full stop glued to the end of the time, read as a line of items reads one.
-  if (timeEndsWithFullStop(rest)) leaveOutFullStop(rest, issues);
+  if (timeEndsWithFullStop(chunks, at)) leaveOutFullStop(chunks, issues);
 
   let time: TimeSpec | null = null;
   let used = 0;
-  const c0 = rest[0];
+  const c0 = chunks[at];
   if (!c0) {
     issues.push({ check: 'bad-time', span: marker.span, message: 'A timepoint needs a time: `@ day 1 07:40`, `@ 07:40` or `@ +2h30`.', fixes: [] });
   } else if (c0.text.toLowerCase() === 'day') {
-    const c1 = rest[1];
-    const dayNum = c1 ? leadingNumber(c1.text) : null;
-    if (!c1 || !dayNum || dayNum.length !== c1.text.length || !Number.isInteger(dayNum.value) || dayNum.value < 0 || c1.text.startsWith('-') || c1.text.startsWith('+')) {
+    const c1 = chunks[at + 1];
+    // The number is left in SCANNED (no object per timepoint): read before anything scans again.
+    const dayLength = c1 ? scanNumber(c1.text) : 0;
+    const day = compact(SCANNED.value);
+    if (!c1 || dayLength === 0 || dayLength !== c1.text.length || !Number.isInteger(day) || day < 0 || c1.text.startsWith('-') || c1.text.startsWith('+')) {
       issues.push({ check: 'bad-time', span: c1 ? c1.span : c0.span, message: 'After `day` write the day number, e.g. `@ day 2 08:00`.', fixes: [] });
       used = c1 ? 2 : 1;
-    } else if (dayNum.value > MAX_DAY) {
+    } else if (day > MAX_DAY) {
       issues.push({ check: 'bad-time', span: c1.span, message: `\`day ${c1.text}\` is beyond the last day a note can name (day ${MAX_DAY}).`, fixes: [] });
-      used = rest[2] && readClock(rest[2].text) !== null ? 3 : 2;
+      const c2 = chunks[at + 2];
+      used = c2 && readClock(c2.text) !== null ? 3 : 2;
     } else {
-      const c2 = rest[2];
+      const c2 = chunks[at + 2];
       const clock = c2 ? readClock(c2.text) : null;
       if (c2 && clock !== null) {
-        time = new TimeNode('clock', compact(dayNum.value), clock, body, c0.start, c2.end);
+        time = new TimeNode('clock', day, clock, body, c0.start, c2.end);
         used = 3;
       } else {
         if (c2 && looksLikeClock(c2.text)) {
@@ -345,7 +352,7 @@ function parseTimepoint(body: string, chunks: Word[], line: number, text: string
           issues.push({ check: 'bad-time', span: c2.span, message: `\`${c2.text}\` reads as a time without its colon; write \`${clock}\` (the time is unknown until then).`, fixes: [{ title: `Write \`${clock}\``, edits: [{ span: c2.span, newText: clock }], preferred: true }] });
           used = 3;
         } else used = 2;
-        time = new TimeNode('day', compact(dayNum.value), null, body, c0.start, c1.end);
+        time = new TimeNode('day', day, null, body, c0.start, c1.end);
       }
     }
   } else if (c0.text.startsWith('+')) {
@@ -378,7 +385,7 @@ function parseTimepoint(body: string, chunks: Word[], line: number, text: string
       used = 0;
     }
   }
-  const l0 = rest[used];
+  const l0 = chunks[at + used];
   const labelEnd = l0 ? proseEnd(body) : 0;
   const label: Token | null = l0 ? token(body.slice(l0.start, labelEnd), l0.start, labelEnd) : null;
   return { kind: 'timepoint', line, text, comment, marker, time, label, issues: issues.length === 0 ? NONE : issues };
@@ -389,12 +396,12 @@ function parseTimepoint(body: string, chunks: Word[], line: number, text: string
  * (`@ 08:00.`, `@ +2h.`, `@ day 2.`, `@ day 2 08:00.`), and no label follows: a full stop in a
  * label is prose and stays.
  */
-function timeEndsWithFullStop(rest: readonly Word[]): boolean {
-  const last = rest[rest.length - 1];
-  if (!last || last.text.length < 2 || last.text.charCodeAt(last.text.length - 1) !== 0x2e /* . */ || rest.length > 3) return false;
+function timeEndsWithFullStop(chunks: readonly Word[], at: number): boolean {
+  const last = chunks[chunks.length - 1];
+  if (!last || chunks.length <= at || last.text.length < 2 || last.text.charCodeAt(last.text.length - 1) !== 0x2e /* . */ || chunks.length - at > 3) return false;
   const word = last.text.slice(0, -1);
-  const k = rest.length - 1;
-  if (rest[0]!.text.toLowerCase() === 'day') {
+  const k = chunks.length - at - 1;
+  if (chunks[at]!.text.toLowerCase() === 'day') {
     if (k === 1) {
       const day = leadingNumber(word);
       return day.length === word.length && Number.isInteger(day.value) && day.value >= 0;
@@ -610,6 +617,13 @@ let GROUP_UNIT_AT = -1;
 const GROUP: { used: number; unit: Located | null } = { used: 0, unit: null };
 
 /**
+ * The numbers of the slash group read last, four entries each (value, start, end, 1 for a decimal
+ * comma): scratch space reused from group to group, read right after the call (a shorthand gas
+ * makes its items from it). A pair keeps none of it: it reads its numbers again when asked.
+ */
+const GROUP_NUMBERS: number[] = [];
+
+/**
  * The numbers joined by slashes at chunk `i` (`120/80`, `7.28/56/71/26`, a unit glued to the
  * last), or, where `spaced`, written with blanks around the slashes (`120 / 80`); null when none.
  * How many chunks it took and its glued unit are left in GROUP.
@@ -638,11 +652,10 @@ function readSlashGroup(chunk: Word, source: string): PairNode | null {
   const text = chunk.text;
   let slash = text.indexOf('/');
   if (slash < 0) return null;
-  let count = 1;
-  for (let k = slash; k >= 0; k = text.indexOf('/', k + 1)) count++;
-  // Numbers separated by single slashes, read in place (no split of the chunk), into a list of
-  // its exact length.
-  const packed = new Array<number>(4 * count);
+  // Numbers separated by single slashes, read in place (no split of the chunk).
+  const packed = GROUP_NUMBERS;
+  let count = 0;
+  let comma = false;
   let from = 0;
   let groupEnd = chunk.end;
   for (let k = 0; ; k++) {
@@ -657,7 +670,6 @@ function readSlashGroup(chunk: Word, source: string): PairNode | null {
         // (After one number only, it is a number and its unit: `24mmol/L`.)
         if (k === 0 || !isKnownUnitSpelling(text.slice(from + length))) return null;
         slash = -1;
-        packed.length = 4 * (k + 1);
       }
       GROUP_UNIT_AT = from + length;
       groupEnd = chunk.start + from + length;
@@ -667,11 +679,13 @@ function readSlashGroup(chunk: Word, source: string): PairNode | null {
     packed[4 * k + 1] = start;
     packed[4 * k + 2] = start + length;
     packed[4 * k + 3] = SCANNED.decimalComma ? 1 : 0;
+    comma ||= SCANNED.decimalComma;
+    count++;
     if (slash < 0) break;
     from = slash + 1;
     slash = text.indexOf('/', from);
   }
-  return new PairNode(source, chunk.start, groupEnd, packed);
+  return new PairNode(source, chunk.start, groupEnd, count, comma);
 }
 
 /** Whether a chunk can be a key: keys start with a letter (any script, so a misspelt key is still named). */
@@ -696,7 +710,13 @@ function readSpacedGroup(chunks: readonly Word[], i: number, source: string): Pa
   GROUP_UNIT_AT = -1;
   const first = chunks[i];
   if (!first || first.text.indexOf('/') >= 0 || scanNumber(first.text) !== first.text.length) return null;
-  const packed: number[] = [SCANNED.value, first.start, first.end, SCANNED.decimalComma ? 1 : 0];
+  const packed = GROUP_NUMBERS;
+  packed[0] = SCANNED.value;
+  packed[1] = first.start;
+  packed[2] = first.end;
+  packed[3] = SCANNED.decimalComma ? 1 : 0;
+  let comma = SCANNED.decimalComma;
+  let count = 1;
   let k = i + 1;
   let end = first.end;
   while (k + 1 < chunks.length) {
@@ -707,7 +727,12 @@ function readSpacedGroup(chunks: readonly Word[], i: number, source: string): Pa
     if (length === 0 || next.text.indexOf('/') >= 0) break;
     const glued = length < next.text.length;
     if (glued && !isUnitStart(next.text.charCodeAt(length))) break;
-    packed.push(SCANNED.value, next.start, next.start + length, SCANNED.decimalComma ? 1 : 0);
+    packed[4 * count] = SCANNED.value;
+    packed[4 * count + 1] = next.start;
+    packed[4 * count + 2] = next.start + length;
+    packed[4 * count + 3] = SCANNED.decimalComma ? 1 : 0;
+    comma ||= SCANNED.decimalComma;
+    count++;
     k += 2;
     end = next.start + length;
     if (glued) {
@@ -715,24 +740,23 @@ function readSpacedGroup(chunks: readonly Word[], i: number, source: string): Pa
       break;
     }
   }
-  if (packed.length === 4) return null;
+  if (count === 1) return null;
   GROUP.used = k - i;
-  return new PairNode(source, first.start, end, packed);
+  return new PairNode(source, first.start, end, count, comma);
 }
 
 /**
- * Numbers joined by slashes (`120/80`). Its numbers are kept flat, four entries each (value,
- * start, end, 1 for a decimal comma), and built as number nodes when `parts` is asked for. A big
- * note has a blood pressure at every timepoint: one object and one array each, instead of seven.
+ * Numbers joined by slashes (`120/80`, `120 / 80`). It keeps where it is and how many numbers it
+ * has, and reads its numbers again from its line when they are asked for (`parts`, `numbers`): a
+ * big note has a blood pressure at every timepoint, and few pairs are read more than once.
  */
 class PairNode extends Cut implements PairValue {
-  constructor(
-    source: string,
-    start: number,
-    end: number,
-    private readonly packed: readonly number[],
-  ) {
+  /** How many numbers (times 2), plus 1 when one has a decimal comma. */
+  private readonly flags: number;
+
+  constructor(source: string, start: number, end: number, count: number, decimalComma: boolean) {
     super(source, start, end);
+    this.flags = count * 2 + (decimalComma ? 1 : 0);
   }
 
   /** On the class, not on each pair. */
@@ -742,23 +766,57 @@ class PairNode extends Cut implements PairValue {
 
   /** How many numbers the pair has (without building them). */
   get count(): number {
-    return this.packed.length / 4;
+    return this.flags >> 1;
   }
 
   /** Built on each read: callers read them once. */
   get parts(): readonly NumberValue[] {
-    const p = this.packed;
-    const parts = new Array<NumberValue>(p.length / 4);
-    // Positions come back from the array as they went in, whole; `compact` keeps them unboxed.
-    for (let k = 0; k < parts.length; k++) parts[k] = new NumberNode(this.source, compact(p[4 * k]!), compact(p[4 * k + 1]!), compact(p[4 * k + 2]!), p[4 * k + 3] === 1);
+    const parts = new Array<NumberValue>(this.count);
+    let at = this.start;
+    for (let k = 0; k < parts.length; k++) {
+      at = this.numberAt(at, k);
+      parts[k] = new NumberNode(this.source, compact(SCANNED.value), at, at + NUMBER_LENGTH, SCANNED.decimalComma);
+      at += NUMBER_LENGTH;
+    }
     return parts;
   }
 
+  /** The values of the numbers, in a new list of their own (no node per number). */
+  numbers(): number[] {
+    const values = new Array<number>(this.count);
+    let at = this.start;
+    for (let k = 0; k < values.length; k++) {
+      at = this.numberAt(at, k) + NUMBER_LENGTH;
+      values[k] = compact(SCANNED.value);
+    }
+    return values;
+  }
+
   hasDecimalComma(): boolean {
-    for (let k = 3; k < this.packed.length; k += 4) if (this.packed[k] === 1) return true;
-    return false;
+    return (this.flags & 1) !== 0;
+  }
+
+  /**
+   * Reads number `k` again from `at` (the end of the one before), as the group read it: between
+   * two numbers there are only a slash and blanks (`120/80`, `120 / 80`), and a number ends where
+   * it ended then (a glued unit or a full stop left out of the line does not scan as part of it).
+   * Returns where it starts; its length is left in NUMBER_LENGTH, its value and comma in SCANNED.
+   */
+  private numberAt(at: number, k: number): number {
+    const source = this.source;
+    if (k > 0) while (source.charCodeAt(at) === 0x2f /* / */ || isBlank(source.charCodeAt(at))) at++;
+    NUMBER_LENGTH = scanNumber(source, at);
+    return at;
   }
 }
+
+/** The numbers of a pair, in a new list of their own: for a pair the parser made, without a node per number. */
+export function pairNumbers(pair: PairValue): number[] {
+  return pair instanceof PairNode ? pair.numbers() : pair.parts.map((p) => p.value);
+}
+
+/** The length of the number `PairNode.numberAt` read last (read right after the call). */
+let NUMBER_LENGTH = 0;
 
 /** What implies an item's key (index 0: the key is written), and the flag of a decimal comma, kept in one number. */
 const IMPLIED: readonly ItemNode['implied'][] = [null, 'shorthand', 'device', 'device-flow'];
@@ -973,9 +1031,9 @@ function startsTwoWordUnit(first: string, second: string): boolean {
 function parseItems(section: SectionId, chunks: readonly Word[], start: number, issues: SyntaxIssue[], source: string): readonly ItemNode[] {
   let i = start;
   const n = chunks.length;
-  // Each item takes a chunk at least, but a shorthand gas gives up to four from one: a list of
-  // that size, cut to the items read at the end (in place), kept as long as the line.
-  const items = new Array<Item>(n - start + 3);
+  // Read into scratch space (reused from line to line: parseItems never nests), then copied into
+  // a list of the exact length, kept as long as the line.
+  const items = ITEMS;
   let count = 0;
 
 
@@ -990,11 +1048,16 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
       } else {
         const unit = unitAfter(glued, chunks, i, section, source);
         i += UNIT_CHUNKS;
-        group.parts.forEach((part, k) => {
+        // From the numbers the group read (GROUP_NUMBERS), without building them.
+        for (let k = 0; k < group.count; k++) {
           const keyName = SHORTHAND_KEYS[k]!;
           const isPressure = keyName === 'pco2' || keyName === 'po2';
-          items[count++] = new Item(null, keyName, 'shorthand', fieldFor(section, keyName) ?? null, null, source, part.value, part.span.start, part.span.end, part.decimalComma, isPressure ? unit : null, part.span.start, part.span.end);
-        });
+          const p = GROUP_NUMBERS;
+          // Positions come back from the list whole but maybe as floating-point (it holds values too): `compact` keeps them unboxed.
+          const start = compact(p[4 * k + 1]!);
+          const end = compact(p[4 * k + 2]!);
+          items[count++] = new Item(null, keyName, 'shorthand', fieldFor(section, keyName) ?? null, null, source, p[4 * k]!, start, end, p[4 * k + 3] === 1, isPressure ? unit : null, start, end);
+        }
       }
     }
   }
@@ -1114,6 +1177,13 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
     }
   }
   if (count === 0) return NONE;
-  items.length = count;
-  return items;
+  const kept = new Array<ItemNode>(count);
+  for (let k = 0; k < count; k++) {
+    kept[k] = items[k]!;
+    items[k] = undefined;
+  }
+  return kept;
 }
+
+/** The items of the line `parseItems` reads (emptied before it returns). */
+const ITEMS: (Item | undefined)[] = [];
