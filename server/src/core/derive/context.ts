@@ -176,8 +176,11 @@ export class DeriveContext {
    * made): null when `field` would give none.
    */
   number(id: string): number | null {
-    const input = this.input(id);
-    return input && input.stated.usable ? input.stated.value : null;
+    for (let r = this.reads; r !== null; r = r.next) {
+      if (r.id === id && r.input !== undefined) return r.input && r.input.stated.usable ? r.input.stated.value : null;
+    }
+    // Not read yet: asked of the values in force without building the value (nor a record).
+    return this.timepoint.values.numberOf(id);
   }
 
   /**

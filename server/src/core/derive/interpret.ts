@@ -477,16 +477,18 @@ function carriedWords(first: Term | null, second: Term | null = null): string {
     const one = a ?? b;
     return one === null ? '' : `${one.name} ${carriedFrom(one)}`;
   }
-  // Both carried: named together when they came from one line (`FiO2 and PEEP carried from line 3`).
-  const whereA = carriedFrom(a);
-  const whereB = carriedFrom(b);
-  if (whereA !== whereB) return `${a.name} ${whereA}; ${b.name} ${whereB}`;
-  // As `wordList` names two: each name once.
-  return `${a.name === b.name ? a.name : `${a.name} and ${b.name}`} ${whereA}`;
+  // Both carried: named together when they came from one line (`FiO2 and PEEP carried from line 3`),
+  // each name once (as `wordList` names two).
+  if (carriedLine(a) !== carriedLine(b)) return `${a.name} ${carriedFrom(a)}; ${b.name} ${carriedFrom(b)}`;
+  return `${a.name === b.name ? a.name : `${a.name} and ${b.name}`} ${carriedFrom(a)}`;
+}
+
+function carriedLine(t: Term): number {
+  return t.origin.kind === 'carried' ? t.origin.line : -1;
 }
 
 function carriedFrom(t: Term): string {
-  return t.origin.kind === 'carried' ? `carried from line ${t.origin.line + 1}` : '';
+  return `carried from line ${carriedLine(t) + 1}`;
 }
 
 /** `FiO2 0.60`, with where it came from when it was carried: `FiO2 0.60 (carried from line 3)`. */
@@ -554,14 +556,15 @@ function acidBaseText(cls: AcidBaseClassification, gas: GasWords, basis: AcidBas
     }
   }
   const exp = cls.expected;
-  const named = new Set<AcidBaseDisorder>();
+  // The disorder a compensation sentence names (one at most), not named again below.
+  let named: AcidBaseDisorder | null = null;
   if (exp?.kind === 'respiratory-response') {
     // The ends of a range are shown with the decimals that keep the observed value outside or inside it, as it is.
     const o = exp.observed;
     const range = gas.range(exp.range.low, exp.range.high, o);
     if (cls.compensation === 'appropriate') parts[0] += `, with the expected respiratory response (PaCO2 within the expected ${range})`;
-    else if (cls.additional.includes('respiratory-acidosis')) { parts.push(`PaCO2 ${gas.measured(o, basis.co2Resolution, exp.range.high)} is above the expected ${range}: consistent with an added respiratory acidosis`); named.add('respiratory-acidosis'); }
-    else if (cls.additional.includes('respiratory-alkalosis')) { parts.push(`PaCO2 ${gas.measured(o, basis.co2Resolution, exp.range.low)} is below the expected ${range}: consistent with an added respiratory alkalosis`); named.add('respiratory-alkalosis'); }
+    else if (cls.additional.includes('respiratory-acidosis')) { parts.push(`PaCO2 ${gas.measured(o, basis.co2Resolution, exp.range.high)} is above the expected ${range}: consistent with an added respiratory acidosis`); named = 'respiratory-acidosis'; }
+    else if (cls.additional.includes('respiratory-alkalosis')) { parts.push(`PaCO2 ${gas.measured(o, basis.co2Resolution, exp.range.low)} is below the expected ${range}: consistent with an added respiratory alkalosis`); named = 'respiratory-alkalosis'; }
   } else if (exp?.kind === 'metabolic-response') {
     const o = exp.observed;
     const acuteRange = `${rangeAgainst(exp.acute.low, exp.acute.high, 0, o)} mmol/L`;
@@ -571,13 +574,14 @@ function acidBaseText(cls: AcidBaseClassification, gas: GasWords, basis: AcidBas
     if (cls.compensation !== 'appropriate' && cls.compensation !== 'not-applicable') {
       const added = cls.additional.find((d) => d === 'metabolic-acidosis' || d === 'metabolic-alkalosis');
       parts.push(`${hco3Against} is outside the expected ${acuteRange} (acute) and ${chronicRange} (chronic): consistent with an added ${added ? DISORDER_WORDS[added] : 'metabolic disorder'}`);
-      if (added) named.add(added);
+      if (added) named = added;
     } else if (chron === 'acute') parts[0] += `, with HCO3 within the ${acuteRange} expected if acute (${chronicRange} if chronic)`;
     else if (chron === 'chronic') parts[0] += `, with HCO3 within the ${chronicRange} expected if chronic (${acuteRange} if acute)`;
     else if (chron === 'intermediate') parts.push(`${hco3Against} is between the acute and chronic ranges (${acuteRange} if acute, ${chronicRange} if chronic): evolving, or acute on chronic`);
     else if (chron === 'acute-or-chronic') parts.push(`${hco3Against} is within both the acute (${acuteRange}) and the chronic (${chronicRange}) range, which overlap here, so acute cannot be told from chronic`);
   }
-  const extra = cls.additional.filter((d) => d !== cls.primary && !named.has(d));
+  // Most gases add no disorder: no list is made then.
+  const extra: readonly AcidBaseDisorder[] = cls.additional.length === 0 ? NONE : cls.additional.filter((d) => d !== cls.primary && d !== named);
   if (extra.length > 0) {
     // Disorders added from the anion gap: the gap (and the delta ratio, or an HCO3 not below 24) they rest on.
     const why: string[] = [];

@@ -352,7 +352,7 @@ export function expectedHco3Respiratory(paco2Mmhg: number, chronicity: Respirato
   if (chronicity !== 'acute' && chronicity !== 'chronic') return null;
   const tens = (paco2Mmhg - PACO2_CENTRE_MMHG) / 10;
   const c = RESPIRATORY_HCO3_COEFFICIENTS_PER_10_MMHG;
-  const [kSmall, kLarge] =
+  const k =
     tens >= 0
       ? chronicity === 'acute'
         ? c.acuteAcidosis
@@ -360,6 +360,9 @@ export function expectedHco3Respiratory(paco2Mmhg: number, chronicity: Respirato
       : chronicity === 'acute'
         ? c.acuteAlkalosis
         : c.chronicAlkalosis;
+  // Indexed, not destructured: destructuring goes through an iterator at every gas.
+  const kSmall = k[0];
+  const kLarge = k[1];
   // Above 40 mmHg HCO3 rises by k per 10 mmHg; below 40 it falls by k per 10 mmHg (tens < 0).
   const sign = tens >= 0 ? 1 : -1;
   const a = HCO3_CENTRE_MMOL_L + sign * kSmall * Math.abs(tens);
@@ -555,6 +558,13 @@ function primaryDisorders(primary: PrimaryAcidBaseFinding): readonly AcidBaseDis
   }
 }
 
+/** A list of one's own to add to (`slice` takes a slow path on the shared, frozen lists). */
+function copyOf(list: readonly AcidBaseDisorder[]): AcidBaseDisorder[] {
+  const copy: AcidBaseDisorder[] = [];
+  for (let i = 0; i < list.length; i++) copy.push(list[i]!);
+  return copy;
+}
+
 /** Whether a disorder is among the primary ones or those added so far. */
 function identifiedIn(d: AcidBaseDisorder, fromPrimary: readonly AcidBaseDisorder[], additional: readonly AcidBaseDisorder[]): boolean {
   return fromPrimary.includes(d) || additional.includes(d);
@@ -594,7 +604,7 @@ export function classifyAcidBase(input: AcidBaseInput): AcidBaseClassification |
   const { compensation, expected, chronicity, additional: fromCompensation } = compensationFor(primary, paco2, hco3, resolution);
 
   const fromPrimary = primaryDisorders(primary);
-  const additional: AcidBaseDisorder[] = fromCompensation.slice();
+  const additional: AcidBaseDisorder[] = copyOf(fromCompensation);
 
   let anionGapFinding: AnionGapFinding | null = null;
   if (gap !== undefined) {
@@ -616,8 +626,8 @@ export function classifyAcidBase(input: AcidBaseInput): AcidBaseClassification |
     anionGapFinding = { valueMmolL: gap, high, deltaRatio: ratio, deltaRatioBand: band, metabolicAcidosisKind: kind };
   }
 
-  const disorders: AcidBaseDisorder[] = fromPrimary.slice();
-  for (const d of additional) if (!disorders.includes(d)) disorders.push(d);
+  const disorders: AcidBaseDisorder[] = copyOf(fromPrimary);
+  for (let i = 0; i < additional.length; i++) if (!disorders.includes(additional[i]!)) disorders.push(additional[i]!);
   const singlePrimary = fromPrimary.length === 1;
 
   return {
