@@ -37,7 +37,7 @@ import { barometricFromAltitude } from './ambient';
 import { moveLineNames, shiftedLine, type InputValue, type LineShift, type Origin, type StatedValue, type Timepoint, type TimepointTime, type ValuesInForce } from './model';
 import type { ReadIssue } from './read-issues';
 import { readItem, type ReadContext } from './read-value';
-import { NONE, pushAll } from '../util/lists';
+import { NONE } from '../util/lists';
 import { compact } from '../util/numbers';
 
 interface Held {
@@ -150,8 +150,9 @@ export function buildTimelineIncremental(
     // has thousands of blocks, and an edit changes one).
     entries.push(old && result === old.result && old.stateIn === state ? old : { start, index, endLine, stateIn: state, result });
     if (result.timepoint) timepoints.push(result.timepoint);
-    for (const s of result.header) header.push(s);
-    for (const issue of result.issues) readIssues.push(issue);
+    // Indexed: both lists are empty in most blocks.
+    for (let k = 0; k < result.header.length; k++) header.push(result.header[k]!);
+    for (let k = 0; k < result.issues.length; k++) readIssues.push(result.issues[k]!);
     state = result.stateOut;
   }
   return { timeline: { timepoints, readIssues, header, headerGasUnit: headerGasUnit(header, settings) }, cache: { settings, lines, blocks: entries }, moved };
@@ -348,19 +349,31 @@ interface Reading {
 /** Reads the block `lines[start, end)`. */
 function processBlock(lines: readonly LineNode[], start: number, end: number, index: number, stateIn: CarryState, settings: Settings, tree: NoteTree, previousOut: CarryState | null, reading: Reading): BlockResult {
   const endLine = end - 1;
-  const issues: ReadIssue[] = [];
-  const header: StatedValue[] = [];
+  // The block's values and issues are read into scratch space (processBlock never nests) and
+  // copied out at their exact length: most blocks have no header values and no issues.
+  const issues = READ_ISSUES;
+  // Empty unless a read threw part-way through a block (a note is then read afresh).
+  if (issues.length > 0) issues.length = 0;
+  let header: StatedValue[] | null = null;
+  const stated = STATED;
+  let count = 0;
   const first = start < end ? lines[start] : undefined;
   // Written out rather than spread: a spread copy keeps its fields outside the object, in a second one.
   const mutable: MutableState = { patient: stateIn.patient, place: stateIn.place, oxygen: stateIn.oxygen, vent: stateIn.vent, gasUnit: stateIn.gasUnit, lastTime: stateIn.lastTime };
   // Header values and timepoint values are told apart (a header line and a timepoint line of one block).
-  let seenInHeader: FirstSeen | null = null;
-  let seenAtTimepoint: FirstSeen | null = null;
-  let tp: { index: number; line: number | null; label: string; startLine: number; time: TimepointTime; stated: StatedValue[] } | null = null;
+  const seenInHeader = SEEN_IN_HEADER.reset();
+  const seenAtTimepoint = SEEN_AT_TIMEPOINT.reset();
+  // The block's timepoint, when it has one (`tpLabel` not null): the `@` line (null for the implicit first timepoint).
+  let tpLine: number | null = null;
+  let tpLabel: string | null = null;
+  let tpStart = 0;
+  let tpTime: TimepointTime = NO_TIME;
   if (first?.kind === 'timepoint') {
     const time = timeOf(first, stateIn.lastTime, index === 0);
     if (time.minutes !== null || time.day !== null) mutable.lastTime = time;
-    tp = { index, line: first.line, label: labelOf(first), startLine: first.line, time, stated: [] };
+    tpLine = tpStart = first.line;
+    tpLabel = labelOf(first);
+    tpTime = time;
   }
   let context = reading.context;
   for (let i = start; i < end; i++) {
@@ -370,24 +383,41 @@ function processBlock(lines: readonly LineNode[], start: number, end: number, in
     if (kind === 'prose') continue;
     // Every patient, place and units line before the first `@` is the header, also one after a
     // measurement that opened the implicit first timepoint (its line is null).
-    const inHeader = (tp === null || tp.line === null) && kind === 'header';
-    if (!inHeader && tp === null) {
-      tp = { index: 0, line: null, label: 'start', startLine: firstContentLine(tree), time: { day: null, minutes: null }, stated: [] };
+    const inHeader = tpLine === null && kind === 'header';
+    if (!inHeader && tpLabel === null) {
+      tpLabel = 'start';
+      tpStart = firstContentLine(tree);
+      tpTime = { day: null, minutes: null };
     }
     if (context === null || context.place !== mutable.place || context.gasUnit !== mutable.gasUnit) context = reading.context = readContext(mutable, settings);
-    const stated = readLine(node, context.read, issues);
-    const target = inHeader ? header : tp!.stated;
-    if (stated.length > 0) duplicates(stated, inHeader ? (seenInHeader ??= new FirstSeen()) : (seenAtTimepoint ??= new FirstSeen()), inHeader, issues);
-    pushAll(target, stated);
-    apply(node.section, stated, inHeader ? -1 : tp!.index, inHeader ? 'header' : tp!.label, mutable);
+    const into = inHeader ? (header ??= []) : stated;
+    const from = inHeader ? into.length : count;
+    const to = readLine(node, context.read, issues, into, from);
+    if (!inHeader) count = to;
+    if (to > from) duplicates(into, from, to, inHeader ? seenInHeader : seenAtTimepoint, inHeader, issues);
+    apply(node.section, into, from, to, inHeader ? -1 : index, inHeader ? 'header' : tpLabel!, mutable);
   }
+  SEEN_IN_HEADER.reset();
+  SEEN_AT_TIMEPOINT.reset();
   const stateOut = reuseEqual(mutable, previousOut);
-  // Most blocks have no header values and no issues: they keep shared empty lists.
-  const keptHeader = header.length === 0 ? NONE : header;
-  const keptIssues = issues.length === 0 ? NONE : issues;
-  if (!tp) return { timepoint: null, header: keptHeader, issues: keptIssues, stateOut };
-  return { timepoint: freeze(tp, endLine, stateOut, settings), header: keptHeader, issues: keptIssues, stateOut };
+  const keptHeader = header ?? NONE;
+  const keptIssues = issues.length === 0 ? NONE : issues.slice();
+  issues.length = 0;
+  // Kept as long as the timepoint: a copy of its exact length.
+  const keptStated = new Array<StatedValue>(count);
+  for (let k = 0; k < count; k++) {
+    keptStated[k] = stated[k]!;
+    stated[k] = undefined;
+  }
+  if (tpLabel === null) return { timepoint: null, header: keptHeader, issues: keptIssues, stateOut };
+  return { timepoint: freeze(index, tpLine, tpLabel, tpStart, tpTime, keptStated, endLine, stateOut, settings), header: keptHeader, issues: keptIssues, stateOut };
 }
+
+/** Scratch space of `processBlock`: the values stated at the block's timepoint, and its read issues. */
+const STATED: (StatedValue | undefined)[] = [];
+const READ_ISSUES: ReadIssue[] = [];
+/** What a timepoint without a time has (shared: times are never changed). */
+const NO_TIME: TimepointTime = Object.freeze({ day: null, minutes: null });
 
 function firstContentLine(tree: NoteTree): number {
   const first = tree.lines.find((l) => l.kind === 'section' || l.kind === 'unknown');
@@ -443,13 +473,14 @@ function gasUnitInForce(state: CarryState, settings: Settings): 'mmHg' | 'kPa' {
   return (state.gasUnit?.stated.word as 'mmHg' | 'kPa' | undefined) ?? settings.gasUnit;
 }
 
-function readLine(node: SectionLine, context: ReadContext, issues: ReadIssue[]): readonly StatedValue[] {
-  const out: StatedValue[] = [];
-  for (const item of node.items) {
-    const stated = readItem(item, node.section, node.line, context, issues);
-    if (stated) out.push(stated);
+/** Reads the items of a line into `into` from `at` on; returns where the values read end. */
+function readLine(node: SectionLine, context: ReadContext, issues: ReadIssue[], into: (StatedValue | undefined)[], at: number): number {
+  const items = node.items;
+  for (let k = 0; k < items.length; k++) {
+    const stated = readItem(items[k]!, node.section, node.line, context, issues);
+    if (stated) into[at++] = stated;
   }
-  return out;
+  return at;
 }
 
 export function barometricInForce(place: ReadonlyMap<string, { stated: StatedValue }>, settings: Settings): number | null {
@@ -466,27 +497,39 @@ export function barometricInForce(place: ReadonlyMap<string, { stated: StatedVal
  * a search is short however many values a block repeats.
  */
 class FirstSeen {
-  private readonly values: StatedValue[] = [];
+  private readonly values: (StatedValue | undefined)[] = [];
+  private count = 0;
 
   /** The first value of the same section and field as `s`, or null (and `s` is now the first). */
   earlier(s: StatedValue): StatedValue | null {
     const fieldId = s.fieldId;
     const values = this.values;
-    for (let i = 0; i < values.length; i++) {
+    for (let i = 0; i < this.count; i++) {
       const v = values[i]!;
       if (v.fieldId === fieldId && v.section === s.section) return v;
     }
-    values.push(s);
+    values[this.count++] = s;
     return null;
   }
+
+  /** Forgets the values seen (and lets go of them): one of each kind serves every block. */
+  reset(): this {
+    for (let i = 0; i < this.count; i++) this.values[i] = undefined;
+    this.count = 0;
+    return this;
+  }
 }
+
+const SEEN_IN_HEADER = new FirstSeen();
+const SEEN_AT_TIMEPOINT = new FirstSeen();
 
 /**
  * The same field twice in one section at one timepoint (or in the header): the later value wins,
  * the first is named.
  */
-function duplicates(stated: readonly StatedValue[], seen: FirstSeen, inHeader: boolean, issues: ReadIssue[]): void {
-  for (const s of stated) {
+function duplicates(stated: readonly (StatedValue | undefined)[], from: number, to: number, seen: FirstSeen, inHeader: boolean, issues: ReadIssue[]): void {
+  for (let k = from; k < to; k++) {
+    const s = stated[k]!;
     const earlier = seen.earlier(s);
     if (!earlier) continue;
     issues.push({
@@ -506,9 +549,10 @@ type MutableState = { -readonly [K in keyof CarryState]: CarryState[K] };
  * `base` with the settings of `stated` held. A line of readings only (`vent plateau 24`) holds
  * nothing: the held map stays the same object, so the reuse of later timepoints sees no change.
  */
-function hold(base: HeldMap, stated: readonly StatedValue[], tp: number, label: string): HeldMap {
+function hold(base: HeldMap, stated: readonly (StatedValue | undefined)[], from: number, to: number, tp: number, label: string): HeldMap {
   let next: Map<string, Held> | null = null;
-  for (const s of stated) {
+  for (let k = from; k < to; k++) {
+    const s = stated[k]!;
     if (READING_FIELDS.has(s.fieldId)) continue;
     next ??= new Map(base);
     next.set(s.fieldId, { stated: s, timepoint: tp, label });
@@ -516,25 +560,32 @@ function hold(base: HeldMap, stated: readonly StatedValue[], tp: number, label: 
   return next ?? base;
 }
 
-function apply(section: SectionId, stated: readonly StatedValue[], tp: number, label: string, state: MutableState): void {
+/** Holds the settings among `stated[from, to)`, the values of one `section` line. */
+function apply(section: SectionId, stated: readonly (StatedValue | undefined)[], from: number, to: number, tp: number, label: string, state: MutableState): void {
   switch (section) {
-    case 'patient': state.patient = hold(state.patient, stated, tp, label); break;
-    case 'place': if (stated.length > 0) state.place = hold(EMPTY, stated, tp, label); break;
-    case 'units': { const g = stated.find((s) => s.fieldId === 'gas_unit'); if (g?.word) state.gasUnit = { stated: g, timepoint: tp, label }; break; }
-    case 'oxygen': state.oxygen = hold(EMPTY, stated, tp, label); state.vent = EMPTY; break;
+    case 'patient': state.patient = hold(state.patient, stated, from, to, tp, label); break;
+    case 'place': if (to > from) state.place = hold(EMPTY, stated, from, to, tp, label); break;
+    case 'units': { const g = firstOf(stated, from, to, 'gas_unit'); if (g?.word) state.gasUnit = { stated: g, timepoint: tp, label }; break; }
+    case 'oxygen': state.oxygen = hold(EMPTY, stated, from, to, tp, label); state.vent = EMPTY; break;
     case 'vent': {
       state.oxygen = EMPTY;
       // A new mode starts a new set of settings; PEEP and FiO2 carry across it. Modes are words of
       // any case: one outside the registry's (`ASV`, then `asv`) is the same mode restated.
-      const mode = stated.find((s) => s.fieldId === 'mode');
+      const mode = firstOf(stated, from, to, 'mode');
       const before = state.vent.get('mode')?.stated.word;
       let base = state.vent;
       if (mode?.word && before && mode.word.toLowerCase() !== before.toLowerCase()) base = new Map([...base].filter(([id]) => id === 'peep' || id === 'fio2'));
-      state.vent = hold(base, stated, tp, label);
+      state.vent = hold(base, stated, from, to, tp, label);
       break;
     }
     default: break;
   }
+}
+
+/** The first value of field `id` among `stated[from, to)`. */
+function firstOf(stated: readonly (StatedValue | undefined)[], from: number, to: number, id: string): StatedValue | undefined {
+  for (let k = from; k < to; k++) if (stated[k]!.fieldId === id) return stated[k];
+  return undefined;
 }
 
 /** Keeps the previous run's held values (and maps) where the recomputed ones are equal. */
@@ -656,12 +707,10 @@ function isHereOnly(s: StatedValue): boolean {
   return MEASURE_SECTIONS.has(s.section) || READING_FIELDS.has(s.fieldId);
 }
 
-function freeze(b: { index: number; line: number | null; label: string; startLine: number; time: TimepointTime; stated: StatedValue[] }, endLine: number, state: CarryState, settings: Settings): Timepoint {
-  // Kept as long as the timepoint: a copy of its exact length (an array grown by push keeps room to spare).
-  const stated = b.stated.slice();
-  const values = new ValuesAt(b.index, state, stated);
+function freeze(index: number, line: number | null, label: string, startLine: number, time: TimepointTime, stated: readonly StatedValue[], endLine: number, state: CarryState, settings: Settings): Timepoint {
+  const values = new ValuesAt(index, state, stated);
   const gasUnit = gasUnitInForce(state, settings);
-  return { index: b.index, line: b.line, label: b.label, startLine: b.startLine, endLine, time: b.time, stated, values, barometricMmhg: barometricInForce(state.place, settings), gasUnit, shownGasUnit: gasUnitWritten(stated) ?? gasUnit };
+  return { index, line, label, startLine, endLine, time, stated, values, barometricMmhg: barometricInForce(state.place, settings), gasUnit, shownGasUnit: gasUnitWritten(stated) ?? gasUnit };
 }
 
 /** Fields whose values are gas pressures, in mmHg or kPa (the place's barometric pressure is a setting, not a gas). */
