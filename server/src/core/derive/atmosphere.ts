@@ -1,6 +1,7 @@
 /** Derived values of the air breathed: barometric pressure and inspired PO2. */
 import { SOURCES, WATER_VAPOUR_37C_MMHG, barometricFromAltitudeStandard, barometricFromAltitudeWest, inspiredPo2Humidified, waterVapourPressureMmhg } from '../physiology';
 import { formatNumber } from '../util/format';
+import { fieldById } from '../fields/registry';
 import { defineDerived, type DeriveContext, type Term, type ValueExtras } from './context';
 
 export const SEA_LEVEL_MMHG = 760;
@@ -58,17 +59,21 @@ const PH2O_NO_TEMPERATURE: Term = {
   note: '37 °C',
 };
 
+/** The decimals a temperature input shows with (its field's, as every input's). */
+const TEMPERATURE_DECIMALS = fieldById('temp')?.decimals ?? 1;
+
 /**
- * PH2O under the pinned convention at a timepoint that states a temperature (shown as `shown`),
- * which it names as not used. Kept by temperature as written (few: a note's temperatures repeat),
- * up to a bound: the key is user text.
+ * PH2O under the pinned convention at a timepoint that states a temperature, which it names as
+ * not used. Kept by temperature (few: a note's temperatures repeat), up to a bound: the key
+ * comes from the note.
  */
-const FIXED_BESIDE: Map<string, Term> = new Map();
-function fixedBesideTemperature(shown: string): Term {
-  const known = FIXED_BESIDE.get(shown);
+const FIXED_BESIDE: Map<number, Term> = new Map();
+function fixedBesideTemperature(celsius: number): Term {
+  const known = FIXED_BESIDE.get(celsius);
   if (known !== undefined) return known;
-  const term: Term = { ...PH2O_FIXED, origin: { kind: 'default', description: `${FIXED_WHY}; the temperature ${shown} °C stated here is not used` } };
-  if (FIXED_BESIDE.size < 1000) FIXED_BESIDE.set(shown, term);
+  const description = `${FIXED_WHY}; the temperature ${formatNumber(celsius, TEMPERATURE_DECIMALS)} °C stated here is not used`;
+  const term: Term = { ...PH2O_FIXED, origin: { kind: 'default', description } };
+  if (FIXED_BESIDE.size < 1000) FIXED_BESIDE.set(celsius, term);
   return term;
 }
 
@@ -80,8 +85,12 @@ function fixedBesideTemperature(shown: string): Term {
  */
 function waterVapourTerm(c: DeriveContext): Term | null {
   const here = c.statedHere('temp');
+  if (c.settings.waterVapour !== 'body-temperature') {
+    // Only the number is named: asked without building the temperature as an input.
+    const celsius = here ? c.number('temp') : null;
+    return celsius === null ? PH2O_FIXED : fixedBesideTemperature(celsius);
+  }
   const temp = here ? c.field('temp', 'temp') : null;
-  if (c.settings.waterVapour !== 'body-temperature') return temp === null ? PH2O_FIXED : fixedBesideTemperature(formatNumber(temp.value, temp.decimals));
   if (temp === null) return PH2O_NO_TEMPERATURE;
   const ph2o = waterVapourPressureMmhg(temp.value);
   if (ph2o === null) return null;
