@@ -31,6 +31,19 @@ export function isBlank(code: number): boolean {
   );
 }
 
+/**
+ * `text.toLowerCase()`, without a copy when the text has no capital to lower: V8 makes a new string
+ * at every call, and the parser lowers a word for most words of a note, nearly all written in
+ * lower case already. Text with a character beyond ASCII goes to toLowerCase as it is.
+ */
+export function lowerCase(text: string): string {
+  for (let i = 0; i < text.length; i++) {
+    const c = text.charCodeAt(i);
+    if ((c >= 0x41 && c <= 0x5a) || c > 0x7f) return text.toLowerCase();
+  }
+  return text;
+}
+
 export function isDigit(code: number): boolean {
   return code >= 0x30 && code <= 0x39;
 }
@@ -90,10 +103,11 @@ export function releaseWords(): void {
 
 /**
  * The words of a line body, in a reused list of reused words (see `Word`, `LIST`): valid until the
- * next call. `intern` may swap a word's text for an equal string kept elsewhere (the words of the
- * format: section names, keys, units), so the tree does not hold a copy of `hr` per line.
+ * next call. `intern` gives the text of `[start, end)` of the body, and may give an equal string
+ * kept elsewhere (the words of the format: section names, keys, units) without cutting the word
+ * out, so the tree does not hold a copy of `hr` per line and no copy is made only to be dropped.
  */
-export function wordsOf(body: string, from = 0, intern?: (text: string) => string): Word[] {
+export function wordsOf(body: string, from = 0, intern?: (body: string, start: number, end: number) => string): Word[] {
   const words = LIST;
   let count = 0;
   let i = from;
@@ -120,16 +134,16 @@ export function wordsOf(body: string, from = 0, intern?: (text: string) => strin
       }
       i++;
     }
-    const text = body.slice(start, i);
+    const text = intern ? intern(body, start, i) : body.slice(start, i);
     let word: Word;
     if (count < POOL_LIMIT) {
       word = POOL[count] ?? (POOL[count] = new Word());
-      word.text = intern ? intern(text) : text;
+      word.text = text;
       word.start = start;
       word.end = i;
       word.afterComma = sawComma;
     } else {
-      word = new Word(intern ? intern(text) : text, start, i, sawComma);
+      word = new Word(text, start, i, sawComma);
     }
     if (count < words.length) words[count] = word;
     else words.push(word);

@@ -4,10 +4,10 @@
  * be re-parsed alone (see `parseLine`). Linear in the length of the text.
  */
 import { fieldFor, FIELDS, type FieldDef } from '../fields/registry';
-import { SECTIONS, sectionByName, type SectionId } from '../fields/sections';
+import { SECTIONS, sectionByName, type SectionDef, type SectionId } from '../fields/sections';
 import { isKnownUnitSpelling, UNITS } from '../fields/units';
 import { closest } from '../util/suggest';
-import { Chunk, isBlank, isDigit, leadingNumber, LEXED, releaseWords, scanNumber, SCANNED, wordsOf, Word } from './lexer';
+import { Chunk, isBlank, isDigit, leadingNumber, LEXED, lowerCase, releaseWords, scanNumber, SCANNED, wordsOf, Word } from './lexer';
 import type {
   ItemNode,
   LineFix,
@@ -90,10 +90,53 @@ const VOCABULARY: ReadonlyMap<string, string> = (() => {
   return words;
 })();
 
-function intern(text: string): string {
-  // Numbers are never words of the format: only chunks that start with a letter are looked up.
-  const c = text.charCodeAt(0) | 0x20;
-  return text.length <= 12 && c >= 0x61 && c <= 0x7a ? (VOCABULARY.get(text) ?? text) : text;
+/** The longest word `intern` looks up: no word of the format is longer. */
+const INTERNED_LENGTH = 12;
+
+/**
+ * The words of VOCABULARY that start with a letter and are at most INTERNED_LENGTH long, by their
+ * length and first character (`length * 128 + code`): a word of a line is looked up among the few
+ * of its length and first letter in place, without cutting it out of its line first.
+ */
+const VOCABULARY_BY_START: readonly (readonly string[] | undefined)[] = (() => {
+  const table: string[][] = [];
+  for (const w of VOCABULARY.keys()) {
+    if (w.length > INTERNED_LENGTH || !startsWithAsciiLetter(w.charCodeAt(0))) continue;
+    (table[w.length * 128 + w.charCodeAt(0)] ??= []).push(w);
+  }
+  return table;
+})();
+
+function startsWithAsciiLetter(c: number): boolean {
+  const lower = c | 0x20;
+  return lower >= 0x61 && lower <= 0x7a;
+}
+
+/** The text of `[start, end)` of `body`: the word of the format kept once when it is one (see `VOCABULARY`). */
+function intern(body: string, start: number, end: number): string {
+  // Numbers are never words of the format: only words that start with a letter are looked up.
+  const c = body.charCodeAt(start);
+  if (end - start <= INTERNED_LENGTH && startsWithAsciiLetter(c)) {
+    const candidates = VOCABULARY_BY_START[(end - start) * 128 + c];
+    if (candidates !== undefined) {
+      for (let k = 0; k < candidates.length; k++) if (body.startsWith(candidates[k]!, start)) return candidates[k]!;
+    }
+  }
+  return body.slice(start, end);
+}
+
+/** The sections of the format's words (VOCABULARY), looked up once each. */
+const SECTION_OF_WORD = new Map<string, SectionDef | null>();
+
+/** The section a line's first word names (`sectionByName`, which lowers a copy of the word, asked once per word of the format). */
+function sectionOf(word: string): SectionDef | undefined {
+  if (VOCABULARY.get(word) !== word) return sectionByName(word);
+  let known = SECTION_OF_WORD.get(word);
+  if (known === undefined) {
+    known = sectionByName(word) ?? null;
+    SECTION_OF_WORD.set(word, known);
+  }
+  return known ?? undefined;
 }
 
 /** The `@` of a timepoint line that starts with it (most do): one token for all. */
@@ -144,7 +187,7 @@ function parseLineUnsafe(text: string, line: number): LineNode {
 
   if (first.text.charCodeAt(0) === 0x40 /* @ */) return parseTimepoint(body, chunks, line, text, comment);
 
-  const section = sectionByName(first.text);
+  const section = sectionOf(first.text);
   // The words of a line are reused for the next line: what the tree keeps is copied (`keep`), and a
   // section word at the start of its line is one token shared by every such line.
   const sectionToken: Token = section ? lineStartToken(first) : keep(first);
@@ -292,7 +335,7 @@ function leaveOutFullStop(chunks: Word[], issues: SyntaxIssue[]): void {
     chunks.pop();
     message = 'A full stop at the end of the line is not part of any item; the line is read without it.';
   } else {
-    last.text = intern(written.slice(0, -1));
+    last.text = intern(written, 0, written.length - 1);
     last.end--;
     message = `\`${written}\` is read as \`${last.text}\`: a full stop at the end of the line is left out.`;
   }
@@ -324,7 +367,7 @@ function parseTimepoint(body: string, chunks: Word[], line: number, text: string
   const c0 = chunks[at];
   if (!c0) {
     issues.push({ check: 'bad-time', span: marker.span, message: 'A timepoint needs a time: `@ day 1 07:40`, `@ 07:40` or `@ +2h30`.', fixes: [] });
-  } else if (c0.text.toLowerCase() === 'day') {
+  } else if (lowerCase(c0.text) === 'day') {
     const c1 = chunks[at + 1];
     // The number is left in SCANNED (no object per timepoint): read before anything scans again.
     const dayLength = c1 ? scanNumber(c1.text) : 0;
@@ -401,7 +444,7 @@ function timeEndsWithFullStop(chunks: readonly Word[], at: number): boolean {
   if (!last || chunks.length <= at || last.text.length < 2 || last.text.charCodeAt(last.text.length - 1) !== 0x2e /* . */ || chunks.length - at > 3) return false;
   const word = last.text.slice(0, -1);
   const k = chunks.length - at - 1;
-  if (chunks[at]!.text.toLowerCase() === 'day') {
+  if (lowerCase(chunks[at]!.text) === 'day') {
     if (k === 1) {
       const day = leadingNumber(word);
       return day.length === word.length && Number.isInteger(day.value) && day.value >= 0;
@@ -888,7 +931,7 @@ class Item implements ItemNode, Span {
   }
 
   get keyName(): string {
-    return (this.flags & IMPLIED_MASK) === 0 ? this.name.toLowerCase() : this.name;
+    return (this.flags & IMPLIED_MASK) === 0 ? lowerCase(this.name) : this.name;
   }
 
   private get numComma(): boolean {
@@ -956,10 +999,10 @@ function deviceWordAt(chunks: readonly Word[], i: number): { text: string; span:
   const device = fieldFor('oxygen', 'device');
   if (!device?.words) return null;
   const next = chunks[i + 1];
-  if (c.text.toLowerCase() === 'room' && next && !next.afterComma && next.text.toLowerCase() === 'air') {
+  if (lowerCase(c.text) === 'room' && next && !next.afterComma && lowerCase(next.text) === 'air') {
     return { text: `${c.text} ${next.text}`, span: { start: c.start, end: next.end }, used: 2 };
   }
-  if (device.words[c.text.toLowerCase()] && !isKey('oxygen', c.text)) return { text: c.text, span: c.span, used: 1 };
+  if (device.words[lowerCase(c.text)] && !isKey('oxygen', c.text)) return { text: c.text, span: c.span, used: 1 };
   return null;
 }
 
@@ -1078,7 +1121,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
           i++;
           const unit = unitAfter(gluedUnit(next, length), chunks, i, section, source);
           i += UNIT_CHUNKS;
-          const keyName = dev.text.toLowerCase() === 'cpap' ? 'level' : 'flow';
+          const keyName = lowerCase(dev.text) === 'cpap' ? 'level' : 'flow';
           items[count++] = numberItem(null, keyName, 'device-flow', fieldFor(section, keyName) ?? null, source, number, next.start, next.start + length, comma, unit, next.start);
         }
       }
@@ -1099,7 +1142,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
       continue;
     }
     const key = chunk;
-    const keyName = chunk.text.toLowerCase();
+    const keyName = lowerCase(chunk.text);
     const field = fieldFor(section, chunk.text) ?? null;
     i++;
     const next = chunks[i];
@@ -1107,7 +1150,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
     let unit: Located | null = null;
     if (next && !next.afterComma) {
       if (field?.kind === 'word') {
-        if (!isKey(section, next.text) || (field.words?.[next.text.toLowerCase()] !== undefined)) {
+        if (!isKey(section, next.text) || (field.words?.[lowerCase(next.text)] !== undefined)) {
           if (field.id === 'device') {
             const dev = deviceWordAt(chunks, i);
             const used = dev?.used ?? 1;
