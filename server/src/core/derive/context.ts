@@ -99,21 +99,18 @@ type Evaluated = DerivedValue | MissingValue | NotApplicable | null;
 const IN_PROGRESS = 0;
 
 /**
- * What a context has read of one field: its value in force, whether it is stated here, and the
- * term formulas read it as, each filled in when first asked. The records of a context form a
- * list (newest first), searched as a `SmallStore` is: a gas asks about a dozen fields, and one
- * record each costs less than a store per question growing through its tables.
+ * What a context has read of one field: its value in force and the term formulas read it as. The
+ * records of a context form a list (newest first), searched as a `SmallStore` is: a gas reads
+ * about a dozen fields, and one record each costs less than a store growing through its tables.
  */
 class FieldRead {
-  /** The value in force (null: none); undefined until read. */
-  input: InputValue | null | undefined = undefined;
-  /** Whether it is stated at this timepoint; undefined until asked. */
-  here: boolean | undefined = undefined;
   /** The term last read (several formulas read one input under one name). */
   term: Term | null = null;
 
   constructor(
     readonly id: string,
+    /** The value in force (null: none). */
+    readonly input: InputValue | null,
     readonly next: FieldRead | null,
   ) {}
 }
@@ -147,23 +144,27 @@ export class DeriveContext {
     return value;
   }
 
-  /** The record of what was read of a field, made on first use. */
+  /** The record of what was read of a field, made (and the value read) on first use. */
   private read(id: string): FieldRead {
-    for (let r = this.reads; r !== null; r = r.next) if (r.id === id) return r;
-    return (this.reads = new FieldRead(id, this.reads));
+    return this.readAlready(id) ?? (this.reads = new FieldRead(id, this.timepoint.values.get(id) ?? null, this.reads));
+  }
+
+  /** The record of a field already read, or null. */
+  private readAlready(id: string): FieldRead | null {
+    let r = this.reads;
+    while (r !== null && r.id !== id) r = r.next;
+    return r;
   }
 
   /** The value in force for a field, read once per context. */
   input(id: string): InputValue | null {
-    const r = this.read(id);
-    if (r.input !== undefined) return r.input;
-    return (r.input = this.timepoint.values.get(id) ?? null);
+    return this.read(id).input;
   }
 
   /** A usable stated value in force, as a formula input. */
   field(id: string, name?: string): Term | null {
     const r = this.read(id);
-    const input = r.input !== undefined ? r.input : (r.input = this.timepoint.values.get(id) ?? null);
+    const input = r.input;
     if (!input || !input.stated.usable || input.stated.value === null) return null;
     // Several formulas read the same input under the same name: one term object serves them.
     const known = r.term;
@@ -176,11 +177,10 @@ export class DeriveContext {
    * made): null when `field` would give none.
    */
   number(id: string): number | null {
-    for (let r = this.reads; r !== null; r = r.next) {
-      if (r.id === id && r.input !== undefined) return r.input && r.input.stated.usable ? r.input.stated.value : null;
-    }
+    const r = this.readAlready(id);
     // Not read yet: asked of the values in force without building the value (nor a record).
-    return this.timepoint.values.numberOf(id);
+    if (r === null) return this.timepoint.values.numberOf(id);
+    return r.input && r.input.stated.usable ? r.input.stated.value : null;
   }
 
   /**
@@ -206,11 +206,11 @@ export class DeriveContext {
 
   /** Whether a field is stated at this timepoint (not carried). */
   statedHere(id: string): boolean {
-    const r = this.read(id);
-    if (r.here !== undefined) return r.here;
-    // From the value when it was read; else asked of the values in force without building the value
-    // (most fields asked about are never read).
-    return (r.here = r.input !== undefined ? r.input !== null && r.input.origin.kind === 'here' : this.timepoint.values.originOf(id) === 'here');
+    const r = this.readAlready(id);
+    // A field not read is asked of the values in force without building the value, and without a
+    // record: most are asked about once (the anchors of one definition, the fields stated here).
+    if (r === null) return this.timepoint.values.originOf(id) === 'here';
+    return r.input !== null && r.input.origin.kind === 'here';
   }
 
   /** Another derived value, computed once; null when it cannot be computed here. */
