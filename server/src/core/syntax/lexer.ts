@@ -52,19 +52,59 @@ export function isDigit(code: number): boolean {
  * A chunk as the parser reads it. The lexer reuses words from line to line (a big note has one
  * per word, and the tree keeps few), so a word holds only until the next line is cut: what the
  * tree keeps is copied out of it. `span` gives a new span at each read, never the word itself.
+ *
+ * A word's text is `body.slice(start, end)`, cut out when first read (a word of the format is
+ * given its kept string instead): most numbers are read in place (`scanWord`) and the words of
+ * prose are never read, so their texts would be copies made only to be dropped. Whoever changes
+ * a word keeps that so (a full stop left out: `text` and `end` together).
  */
 export class Word {
+  /** The text once known (or given), else null: see `text`. */
+  private cut: string | null;
+
   constructor(
-    public text = '',
+    text: string | null = null,
     public start = 0,
     public end = 0,
     /** A comma separated this word from the previous one. */
     public afterComma = false,
-  ) {}
+    /** The line body the word is in. */
+    public body = '',
+  ) {
+    this.cut = text;
+  }
+
+  get text(): string {
+    return (this.cut ??= this.body.slice(this.start, this.end));
+  }
+
+  set text(text: string) {
+    this.cut = text;
+  }
 
   get span(): Span {
     return { start: this.start, end: this.end };
   }
+
+  /** The word made another: the pooled words are reused from line to line (see `wordsOf`). */
+  reuse(text: string | null, start: number, end: number, afterComma: boolean, body: string): void {
+    this.cut = text;
+    this.start = start;
+    this.end = end;
+    this.afterComma = afterComma;
+    this.body = body;
+  }
+}
+
+/**
+ * `scanNumber` of a word's text, read in its line without cutting the text out. A number scanned
+ * in the line stops where it stops in the word (a word ends at a blank, a separating comma or the
+ * end of the line) but in one case: a sign before a comma and digits (`-,5`), where the word's own
+ * text is scanned instead.
+ */
+export function scanWord(word: Word): number {
+  const length = scanNumber(word.body, word.start);
+  return length <= word.end - word.start ? length : scanNumber(word.text);
 }
 
 /** Words reused from line to line, by their place in the line; a line longer than this gets words of its own beyond it. */
@@ -96,18 +136,18 @@ export function releaseWords(): void {
   // By the count handed out, not the list's length: a caller may have shortened the list (a full stop left out).
   for (let k = 0; k < handedCount; k++) {
     const word = k < POOL_LIMIT ? POOL[k] : LIST[k];
-    if (word) word.text = '';
+    if (word) word.reuse('', 0, 0, false, '');
   }
   handedCount = 0;
 }
 
 /**
  * The words of a line body, in a reused list of reused words (see `Word`, `LIST`): valid until the
- * next call. `intern` gives the text of `[start, end)` of the body, and may give an equal string
- * kept elsewhere (the words of the format: section names, keys, units) without cutting the word
- * out, so the tree does not hold a copy of `hr` per line and no copy is made only to be dropped.
+ * next call. `intern` may give a string equal to the text of `[start, end)` of the body, kept
+ * elsewhere (the words of the format: section names, keys, units), so the tree does not hold a copy
+ * of `hr` per line; null leaves the text to be cut out when read (see `Word`).
  */
-export function wordsOf(body: string, from = 0, intern?: (body: string, start: number, end: number) => string): Word[] {
+export function wordsOf(body: string, from = 0, intern?: (body: string, start: number, end: number) => string | null): Word[] {
   const words = LIST;
   let count = 0;
   let i = from;
@@ -134,16 +174,13 @@ export function wordsOf(body: string, from = 0, intern?: (body: string, start: n
       }
       i++;
     }
-    const text = intern ? intern(body, start, i) : body.slice(start, i);
+    const text = intern ? intern(body, start, i) : null;
     let word: Word;
     if (count < POOL_LIMIT) {
       word = POOL[count] ?? (POOL[count] = new Word());
-      word.text = text;
-      word.start = start;
-      word.end = i;
-      word.afterComma = sawComma;
+      word.reuse(text, start, i, sawComma, body);
     } else {
-      word = new Word(text, start, i, sawComma);
+      word = new Word(text, start, i, sawComma, body);
     }
     if (count < words.length) words[count] = word;
     else words.push(word);

@@ -7,7 +7,7 @@ import { fieldFor, FIELDS, type FieldDef } from '../fields/registry';
 import { SECTIONS, sectionByName, type SectionDef, type SectionId } from '../fields/sections';
 import { isKnownUnitSpelling, UNITS } from '../fields/units';
 import { closest } from '../util/suggest';
-import { Chunk, isBlank, isDigit, leadingNumber, LEXED, lowerCase, releaseWords, scanNumber, SCANNED, wordsOf, Word } from './lexer';
+import { Chunk, isBlank, isDigit, leadingNumber, LEXED, lowerCase, releaseWords, scanNumber, scanWord, SCANNED, wordsOf, Word } from './lexer';
 import type {
   ItemNode,
   LineFix,
@@ -112,8 +112,8 @@ function startsWithAsciiLetter(c: number): boolean {
   return lower >= 0x61 && lower <= 0x7a;
 }
 
-/** The text of `[start, end)` of `body`: the word of the format kept once when it is one (see `VOCABULARY`). */
-function intern(body: string, start: number, end: number): string {
+/** The word of the format `[start, end)` of `body` is, kept once (see `VOCABULARY`); null when it is none. */
+function intern(body: string, start: number, end: number): string | null {
   // Numbers are never words of the format: only words that start with a letter are looked up.
   const c = body.charCodeAt(start);
   if (end - start <= INTERNED_LENGTH && startsWithAsciiLetter(c)) {
@@ -122,7 +122,7 @@ function intern(body: string, start: number, end: number): string {
       for (let k = 0; k < candidates.length; k++) if (body.startsWith(candidates[k]!, start)) return candidates[k]!;
     }
   }
-  return body.slice(start, end);
+  return null;
 }
 
 /** The sections of the format's words (VOCABULARY), looked up once each. */
@@ -217,7 +217,7 @@ function parseLineUnsafe(text: string, line: number): LineNode {
   if (first.afterComma || chunks[1]?.afterComma || doubledComma || commaAfterLoneWord(body, chunks)) strayCommas(body, chunks, true, doubledComma, issues);
   if (chunks.length > 1) {
     const last = chunks[chunks.length - 1]!;
-    if (last.text.charCodeAt(last.text.length - 1) === 0x2e /* . */) leaveOutFullStop(chunks, issues);
+    if (body.charCodeAt(last.end - 1) === 0x2e /* . */) leaveOutFullStop(chunks, issues);
   }
   const items = parseItems(section.id, chunks, 1, issues, text);
   return { kind: 'section', line, text, comment, section: section.id, sectionToken, items, prose: null, issues: issues.length === 0 ? NONE : issues };
@@ -335,7 +335,7 @@ function leaveOutFullStop(chunks: Word[], issues: SyntaxIssue[]): void {
     chunks.pop();
     message = 'A full stop at the end of the line is not part of any item; the line is read without it.';
   } else {
-    last.text = intern(written, 0, written.length - 1);
+    last.text = intern(written, 0, written.length - 1) ?? written.slice(0, -1);
     last.end--;
     message = `\`${written}\` is read as \`${last.text}\`: a full stop at the end of the line is left out.`;
   }
@@ -360,7 +360,7 @@ function parseTimepoint(body: string, chunks: Word[], line: number, text: string
   }
 
   // `@ 08:00.`: a full stop glued to the end of the time, read as a line of items reads one.
-  if (timeEndsWithFullStop(chunks, at)) leaveOutFullStop(chunks, issues);
+  if (timeEndsWithFullStop(body, chunks, at)) leaveOutFullStop(chunks, issues);
 
   let time: TimeSpec | null = null;
   let used = 0;
@@ -439,9 +439,9 @@ function parseTimepoint(body: string, chunks: Word[], line: number, text: string
  * (`@ 08:00.`, `@ +2h.`, `@ day 2.`, `@ day 2 08:00.`), and no label follows: a full stop in a
  * label is prose and stays.
  */
-function timeEndsWithFullStop(chunks: readonly Word[], at: number): boolean {
+function timeEndsWithFullStop(body: string, chunks: readonly Word[], at: number): boolean {
   const last = chunks[chunks.length - 1];
-  if (!last || chunks.length <= at || last.text.length < 2 || last.text.charCodeAt(last.text.length - 1) !== 0x2e /* . */ || chunks.length - at > 3) return false;
+  if (!last || chunks.length <= at || last.end - last.start < 2 || body.charCodeAt(last.end - 1) !== 0x2e /* . */ || chunks.length - at > 3) return false;
   const word = last.text.slice(0, -1);
   const k = chunks.length - at - 1;
   if (lowerCase(chunks[at]!.text) === 'day') {
@@ -635,16 +635,17 @@ class NumberNode extends Cut implements NumberValue {
  * comma are left in SCANNED (no object per number); read them before scanning again.
  */
 function numberChunk(chunk: Word): number {
+  // Read in the line: most numbers' texts are never cut out (see `Word`).
+  const length = scanWord(chunk);
+  if (length === 0 || length === chunk.end - chunk.start) return length;
   const text = chunk.text;
-  const length = scanNumber(text);
-  if (length === 0 || length === text.length) return length;
   if (text.indexOf('/', length) >= 0 && isDigit(text.charCodeAt(length + 1))) return 0;
   return length;
 }
 
 /** The unit glued to a number of `length` at the start of `chunk`, if any. */
 function gluedUnit(chunk: Word, length: number): Located | null {
-  return length === chunk.text.length ? null : token(chunk.text.slice(length), chunk.start + length, chunk.end);
+  return length === chunk.end - chunk.start ? null : token(chunk.text.slice(length), chunk.start + length, chunk.end);
 }
 
 /**
@@ -692,6 +693,7 @@ function groupAt(chunks: readonly Word[], i: number, source: string, spaced: boo
  */
 function readSlashGroup(chunk: Word, source: string): PairNode | null {
   GROUP_UNIT_AT = -1;
+  if (!hasSlash(chunk)) return null;
   const text = chunk.text;
   let slash = text.indexOf('/');
   if (slash < 0) return null;
@@ -729,6 +731,13 @@ function readSlashGroup(chunk: Word, source: string): PairNode | null {
     slash = text.indexOf('/', from);
   }
   return new PairNode(source, chunk.start, groupEnd, count, comma);
+}
+
+/** Whether a word has a slash (looked for in its line: most words have none, and their texts need not be cut out). */
+function hasSlash(word: Word): boolean {
+  const body = word.body;
+  for (let i = word.start; i < word.end; i++) if (body.charCodeAt(i) === 0x2f /* / */) return true;
+  return false;
 }
 
 /** Whether a chunk can be a key: keys start with a letter (any script, so a misspelt key is still named). */
@@ -1026,7 +1035,7 @@ function unitAfter(glued: Located | null, chunks: readonly Word[], i: number, se
     return unit;
   }
   const after = chunks[i];
-  if (after !== undefined && !after.afterComma && startsTwoWordUnit(glued.text, after.text)) {
+  if (after !== undefined && !after.afterComma && startsTwoWordUnit(glued.text, after)) {
     UNIT_CHUNKS = 1;
     return token(source.slice(glued.start, after.end), glued.start, after.end);
   }
@@ -1043,13 +1052,13 @@ function unitWordAt(chunks: readonly Word[], i: number, section: SectionId, sour
   UNIT_CHUNKS = 1;
   const next = chunks[i];
   if (!next || next.afterComma) return null;
-  if (scanNumber(next.text) > 0) return null;
+  if (scanWord(next) > 0) return null;
   const after = chunks[i + 1];
-  if (after !== undefined && !after.afterComma && startsTwoWordUnit(next.text, after.text)) {
+  if (after !== undefined && !after.afterComma && startsTwoWordUnit(next.text, after)) {
     UNIT_CHUNKS = 2;
     return token(source.slice(next.start, after.end), next.start, after.end);
   }
-  const numberAfter = after !== undefined && !after.afterComma && scanNumber(after.text) > 0;
+  const numberAfter = after !== undefined && !after.afterComma && scanWord(after) > 0;
   // `pco2 40 ph 7.4`: a unit spelling that is also a key of the section, with a number after it, is that key.
   if (isKnownUnitSpelling(next.text)) return numberAfter && isKey(section, next.text) ? null : next;
   if (isKey(section, next.text)) return null;
@@ -1064,10 +1073,10 @@ function unitWordAt(chunks: readonly Word[], i: number, section: SectionId, sour
  * `cm` followed by a word that starts with `h` can: the words are joined and looked up only then,
  * so the words after most numbers cost two character reads here.
  */
-function startsTwoWordUnit(first: string, second: string): boolean {
-  if (first.length !== 2 || (first.charCodeAt(1) | 0x20) !== 0x6d /* m */ || (second.charCodeAt(0) | 0x20) !== 0x68 /* h */) return false;
+function startsTwoWordUnit(first: string, second: Word): boolean {
+  if (first.length !== 2 || (first.charCodeAt(1) | 0x20) !== 0x6d /* m */ || (second.body.charCodeAt(second.start) | 0x20) !== 0x68 /* h */) return false;
   const c = first.charCodeAt(0) | 0x20;
-  return (c === 0x6d /* m */ || c === 0x63 /* c */) && isKnownUnitSpelling(`${first} ${second}`);
+  return (c === 0x6d /* m */ || c === 0x63 /* c */) && isKnownUnitSpelling(`${first} ${second.text}`);
 }
 
 /** `source` is the text of the line (spans and numbers' texts refer to it). */
