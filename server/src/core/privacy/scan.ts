@@ -30,25 +30,28 @@ export function scanPart(source: string, from: number, to: number): readonly Pri
   // or more (phone, record and numeric dates, birth years), a day with a month name in lower case,
   // or a postcode cue.
   let digits = 0;
-  let marked = false;
+  let at = false;
+  // A capital, or any character beyond ASCII (it may be one: `Émile`).
+  let capital = false;
   for (let i = from; i < end; i++) {
     const c = source.charCodeAt(i);
     if (c >= 0x30 && c <= 0x39) digits++;
-    else if (c === 0x40 || (c >= 0x41 && c <= 0x5a) || c > 0x7f) marked = true;
+    else if (c === 0x40) at = true;
+    else if ((c >= 0x41 && c <= 0x5a) || c > 0x7f) capital = true;
   }
-  if (!marked && digits < 4 && (digits === 0 || !hasLowerCaseCueWord(source, from, end))) return NONE;
+  if (!at && !capital && digits < 4 && (digits === 0 || !hasLowerCaseCueWord(source, from, end))) return NONE;
   const input = from === 0 && end === source.length ? source : source.slice(from, end);
   // The runs are read once for every detector. A detector runs only when the text has what each
   // of its identifiers needs: dates a digit, phone and record numbers four (five in a group of
-  // digits, or four in a run with letters), postal codes two (`M1 1AE`), e-mail addresses an `@`.
-  // Names need a capital after a cue, which `findNames` looks for itself.
+  // digits, or four in a run with letters), postal codes two (`M1 1AE`), e-mail addresses an `@`,
+  // names a capital (after a cue, which `findNames` looks for itself).
   const runs = runsOf(input);
   const all: PrivacyMatch[] = [];
-  if (input.includes('@')) findEmails(input, all);
+  if (at) findEmails(input, all);
   if (digits >= 1) findDates(input, runs, all);
   if (digits >= 4) findNumberIdentifiers(input, runs, digits, all);
   if (digits >= 2) findPostalCodes(input, runs, all);
-  findNames(input, runs, all);
+  if (capital) findNames(input, runs, all);
   if (all.length === 0) return NONE;
   all.sort((a, b) => a.span.start - b.span.start || (b.span.end - b.span.start) - (a.span.end - a.span.start) || KIND_PRIORITY[b.kind] - KIND_PRIORITY[a.kind]);
   // Keep the best match of each overlapping cluster: a later match replaces the kept one only

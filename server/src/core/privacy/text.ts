@@ -76,15 +76,16 @@ export function runsOf(text: string): Run[] {
   let i = 0;
   const n = text.length;
   while (i < n) {
-    if (!isAlnumAt(text, i)) { i++; continue; }
     const start = i;
     let digits = 0;
     let letters = 0;
-    while (i < n && isAlnumAt(text, i)) {
+    // Each character is classed once.
+    for (; i < n; i++) {
       if (isDigitAt(text, i)) digits++;
-      else letters++;
-      i++;
+      else if (isLetterAt(text, i)) letters++;
+      else break;
     }
+    if (i === start) { i++; continue; }
     const kind: RunKind = letters === 0 ? 'digits' : digits === 0 ? 'letters' : 'mixed';
     runs.push({ text: text.slice(start, i), start, end: i, kind });
   }
