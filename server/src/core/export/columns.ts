@@ -79,7 +79,10 @@ export const RANGE_DERIVED_IDS: ReadonlySet<string> = new Set(['paco2_expected',
 interface RowContext {
   readonly path: string;
   readonly timepoint: Timepoint;
-  readonly derived: ReadonlyMap<string, DerivedValue>;
+  /** The usable value in force of each field, by its index in FIELDS (null: none, or not usable). */
+  readonly inputs: readonly (InputValue | null)[];
+  /** The derived values reported at the timepoint, by their index in DERIVED. */
+  readonly derived: readonly (DerivedValue | undefined)[];
   readonly findings: readonly Finding[];
   /** Minutes of the first timepoint with a known time. */
   readonly firstMinutes: number | null;
@@ -119,10 +122,32 @@ function timepointColumns(): Column[] {
   ];
 }
 
-/** The value of a field in force at the timepoint, or null when absent or not usable. */
-function inForce(c: RowContext, fieldId: string): InputValue | null {
-  const input = c.timepoint.values.get(fieldId);
-  return input && input.stated.usable ? input : null;
+/** The index of each derived value in DERIVED (its slot in `RowContext`). */
+const DERIVED_INDEX: ReadonlyMap<string, number> = new Map(DERIVED.map((d, i) => [d.id, i]));
+
+/**
+ * The usable values in force at a timepoint by field index, each asked for once (its column and
+ * `carried_fields` both read it). Asking field by field beats going over the values in force,
+ * which builds a map of them all per timepoint.
+ */
+function inputsAt(tp: Timepoint): (InputValue | null)[] {
+  const values = tp.values;
+  const inputs = new Array<InputValue | null>(FIELDS.length);
+  for (let k = 0; k < FIELDS.length; k++) {
+    const input = values.get(FIELDS[k]!.id);
+    inputs[k] = input && input.stated.usable ? input : null;
+  }
+  return inputs;
+}
+
+/** The derived values of a derivation by index in DERIVED (the last of an id wins, as in a map). */
+function derivedAt(list: readonly DerivedValue[]): (DerivedValue | undefined)[] {
+  const derived = new Array<DerivedValue | undefined>(DERIVED.length);
+  for (const d of list) {
+    const k = DERIVED_INDEX.get(d.id);
+    if (k !== undefined) derived[k] = d;
+  }
+  return derived;
 }
 
 const GAS_UNIT = 'gas_unit';
@@ -141,21 +166,21 @@ function gasUnits(result: NoteResult): string[] {
   });
 }
 
-function fieldColumns(field: FieldDef): Column[] {
+function fieldColumns(field: FieldDef, index: number): Column[] {
   const base = { kind: 'field' as const, source: field.id };
   if (field.id === GAS_UNIT) {
     // The timeline keeps the gas unit apart from the values in force: it is how bare numbers are read.
     return [{ ...base, name: field.id, description: `${field.label}: ${field.description} The note's \`units gas\` in force, else the gasUnit setting.`, unit: null, ucum: null, type: 'string', part: null, cell: (c) => c.gasUnit }];
   }
   if (field.kind === 'word') {
-    return [{ ...base, name: field.id, description: `${field.label}: ${field.description}`, unit: null, ucum: null, type: 'string', part: null, cell: (c) => inForce(c, field.id)?.stated.word ?? null }];
+    return [{ ...base, name: field.id, description: `${field.label}: ${field.description}`, unit: null, ucum: null, type: 'string', part: null, cell: (c) => c.inputs[index]?.stated.word ?? null }];
   }
   const unitId = field.unit ?? '';
   const unit = unitForPeople(unitId);
   const ucum = ucumCode(unitId);
   const slug = unitSlug(unitId);
   if (field.kind === 'pair') {
-    const part = (which: 'systolic' | 'diastolic', index: number): Column => ({
+    const part = (which: 'systolic' | 'diastolic', at: number): Column => ({
       ...base,
       name: `${field.id}_${which}_${slug}`,
       description: `${field.label}, ${which}: ${field.description}`,
@@ -163,7 +188,7 @@ function fieldColumns(field: FieldDef): Column[] {
       ucum,
       type: 'number',
       part: which,
-      cell: (c) => finite(inForce(c, field.id)?.stated.parts?.[index]),
+      cell: (c) => finite(c.inputs[index]?.stated.parts?.[at]),
     });
     return [part('systolic', 0), part('diastolic', 1)];
   }
@@ -175,7 +200,7 @@ function fieldColumns(field: FieldDef): Column[] {
     ucum,
     type: 'number',
     part: null,
-    cell: (c) => finite(inForce(c, field.id)?.stated.value),
+    cell: (c) => finite(c.inputs[index]?.stated.value),
   }];
 }
 
@@ -188,6 +213,7 @@ const WHERE_FROM: Readonly<Record<string, string>> = {
 };
 
 function derivedColumns(def: (typeof DERIVED)[number], fieldIds: ReadonlySet<string>): Column[] {
+  const index = DERIVED_INDEX.get(def.id)!;
   const id = fieldIds.has(def.id) ? `${def.id}_derived` : def.id;
   const slug = unitSlug(def.unit);
   const base = { kind: 'derived' as const, source: def.id, unit: unitForPeople(def.unit), ucum: ucumCode(def.unit), type: 'number' as const };
@@ -198,7 +224,7 @@ function derivedColumns(def: (typeof DERIVED)[number], fieldIds: ReadonlySet<str
       description: `${def.label}, ${which === 'low' ? 'lower' : 'upper'} end of the range.`,
       part: which,
       cell: (c) => {
-        const range = c.derived.get(def.id)?.range;
+        const range = c.derived[index]?.range;
         return range ? finite(range[which]) : null;
       },
     });
@@ -210,7 +236,7 @@ function derivedColumns(def: (typeof DERIVED)[number], fieldIds: ReadonlySet<str
     name: bare ? id : `${id}_${slug}`,
     description: WHERE_FROM[def.id] ?? `${def.label} (${def.short}), derived: ${def.formula}.`,
     part: null,
-    cell: (c) => finite(c.derived.get(def.id)?.value),
+    cell: (c) => finite(c.derived[index]?.value),
   }];
 }
 
@@ -224,7 +250,11 @@ function summaryColumns(): Column[] {
     kind: 'summary',
     source: null,
     part: null,
-    cell: (c) => c.findings.filter((f) => f.severity === severity).length,
+    cell: (c) => {
+      let n = 0;
+      for (const f of c.findings) if (f.severity === severity) n++;
+      return n;
+    },
   });
   return [
     {
@@ -236,10 +266,14 @@ function summaryColumns(): Column[] {
       kind: 'summary',
       source: null,
       part: null,
-      cell: (c) => FIELDS.filter((f) => {
-        const input = inForce(c, f.id);
-        return input !== null && input.origin.kind === 'carried' && (input.stated.value !== null || input.stated.parts !== null || input.stated.word !== null);
-      }).map((f) => f.id).join(';'),
+      cell: (c) => {
+        let ids = '';
+        for (let k = 0; k < FIELDS.length; k++) {
+          const input = c.inputs[k];
+          if (input && input.origin.kind === 'carried' && (input.stated.value !== null || input.stated.parts !== null || input.stated.word !== null)) ids += ids === '' ? FIELDS[k]!.id : `;${FIELDS[k]!.id}`;
+        }
+        return ids;
+      },
     },
     count('findings_errors', 'error', 'error findings'),
     count('findings_warnings', 'warning', 'warning findings'),
@@ -259,7 +293,7 @@ function buildColumns(): readonly Column[] {
   const later = new Set(ADDED_LATER);
   const columns = [
     ...timepointColumns(),
-    ...FIELDS.flatMap(fieldColumns),
+    ...FIELDS.flatMap((f, i) => fieldColumns(f, i)),
     ...DERIVED.filter((d) => !later.has(d.id)).flatMap((d) => derivedColumns(d, fieldIds)),
     ...summaryColumns(),
     ...ADDED_LATER.flatMap((id) => {
@@ -352,8 +386,8 @@ export function timepointCells(path: string, result: NoteResult, options: Export
   const gasUnitAt = gasUnits(result);
   const findingsAt = findingsByTimepoint(result);
   return result.analysis.timeline.timepoints.map((timepoint, i) => {
-    const derived = new Map(result.analysis.derivation(timepoint.index).derived.map((d) => [d.id, d]));
-    const context: RowContext = { path, timepoint, derived, findings: findingsAt[i] ?? [], firstMinutes, gasUnit: gasUnitAt[i] ?? result.settings.gasUnit, label: writtenLabel(result, timepoint), options };
+    const derived = derivedAt(result.analysis.derivation(timepoint.index).derived);
+    const context: RowContext = { path, timepoint, inputs: inputsAt(timepoint), derived, findings: findingsAt[i] ?? [], firstMinutes, gasUnit: gasUnitAt[i] ?? result.settings.gasUnit, label: writtenLabel(result, timepoint), options };
     const cells = new Array<Cell>(COLUMNS.length);
     for (let k = 0; k < COLUMNS.length; k++) cells[k] = COLUMNS[k]!.cell(context);
     return cells;
