@@ -359,17 +359,16 @@ const NOT_IN_DOMAIN: Outcome = { kind: 'na', reason: 'the inputs are outside the
 
 
 function evaluateDef(def: DerivedDefinition, c: DeriveContext): DerivedValue | MissingValue | NotApplicable | null {
-  const line = anchorLine(def, c);
   let outcome: Outcome;
   try {
     outcome = def.compute(c);
   } catch {
     outcome = { kind: 'na', reason: 'could not be computed' };
   }
-  if (outcome.kind === 'missing') {
-    if (outcome.needs.length === 0) return null;
-    return new Missing(def, outcome.needs, line);
-  }
+  if (outcome.kind === 'missing' && outcome.needs.length === 0) return null;
+  // Found after computing: the anchors the formula read are answered from what it read.
+  const line = anchorLine(def, c);
+  if (outcome.kind === 'missing') return new Missing(def, outcome.needs, line);
   if (outcome.kind === 'na') return { id: def.id, label: def.label, reason: outcome.reason, line };
   return new ComputedValue(def, outcome, usesCarried(outcome.terms, c), line);
 }

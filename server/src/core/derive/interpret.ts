@@ -228,10 +228,15 @@ function gasStatedHere(c: DeriveContext): boolean {
     const section = stated[i]!.section;
     // Compared one by one (`includes` on strings takes a slow path here).
     for (let k = 0; k < GAS_SECTIONS.length; k++) {
-      if (section === GAS_SECTIONS[k]) return c.statedHere('pao2') || c.statedHere('paco2') || c.statedHere('ph');
+      if (section === GAS_SECTIONS[k]) return readHere(c, 'pao2') || readHere(c, 'paco2') || c.statedHere('ph');
     }
   }
   return false;
+}
+
+/** Whether a field is stated here, reading its value (the readings read the PaO2 and PaCO2 next). */
+function readHere(c: DeriveContext, id: string): boolean {
+  return c.input(id)?.origin.kind === 'here';
 }
 
 export function interpret(c: DeriveContext, settings: Settings): readonly Interpretation[] {
