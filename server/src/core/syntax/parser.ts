@@ -73,11 +73,24 @@ export function splitLines(text: string): { lines: LineSlice[]; eol: NoteTree['e
   return { lines, eol };
 }
 
-/** Parses a note; each line is parsed as it is cut (no list of pieces is kept). */
+/**
+ * Parses a note; each line is parsed as it is cut (no list of pieces is kept). The list of lines is
+ * made at its length once the lines are counted: grown by push, a list as long as the note is
+ * copied a dozen times on the way, and keeps room to spare.
+ */
 export function parseNote(text: string): NoteTree {
-  const nodes: LineNode[] = [];
-  const eol = cutLines(text, (line) => { nodes.push(parseLine(line, nodes.length)); });
+  const nodes = new Array<LineNode>(countLines(text));
+  let count = 0;
+  const eol = cutLines(text, (line) => { nodes[count] = parseLine(line, count); count++; });
   return { lines: nodes, eol };
+}
+
+/** How many lines `cutLines` cuts `text` into: one more than its line ends (`\n`, `\r\n`, `\r`). */
+function countLines(text: string): number {
+  let count = 1;
+  for (let i = text.indexOf('\n'); i >= 0; i = text.indexOf('\n', i + 1)) count++;
+  for (let i = text.indexOf('\r'); i >= 0; i = text.indexOf('\r', i + 1)) if (text.charCodeAt(i + 1) !== 0x0a) count++;
+  return count;
 }
 
 /** The words of the format, kept once (see wordsOf's `intern`). */
@@ -87,6 +100,7 @@ const VOCABULARY: ReadonlyMap<string, string> = (() => {
   for (const s of SECTIONS) { add(s.id); for (const a of s.aliases) add(a); }
   for (const f of FIELDS) { for (const a of f.aliases) add(a); for (const w of Object.keys(f.words ?? {})) add(w); }
   for (const u of UNITS) { add(u.id); for (const a of u.aliases) add(a); }
+  add('day'); // of a timepoint's time
   return words;
 })();
 
@@ -213,14 +227,35 @@ function parseLineUnsafe(text: string, line: number): LineNode {
     }
     return { kind: 'section', line, text, comment, section: section.id, sectionToken, items: NONE, prose, issues: noteIssues };
   }
-  const issues: SyntaxIssue[] = [];
+  const issues = lineIssues();
   if (first.afterComma || chunks[1]?.afterComma || doubledComma || commaAfterLoneWord(body, chunks)) strayCommas(body, chunks, true, doubledComma, issues);
   if (chunks.length > 1) {
     const last = chunks[chunks.length - 1]!;
     if (body.charCodeAt(last.end - 1) === 0x2e /* . */) leaveOutFullStop(chunks, issues);
   }
   const items = parseItems(section.id, chunks, 1, issues, text);
-  return { kind: 'section', line, text, comment, section: section.id, sectionToken, items, prose: null, issues: issues.length === 0 ? NONE : issues };
+  return { kind: 'section', line, text, comment, section: section.id, sectionToken, items, prose: null, issues: keptIssues(issues) };
+}
+
+/**
+ * The issues of the line being read (a line of items or a timepoint line), in scratch space: most
+ * lines have none, and a list per line would be garbage. `keptIssues` copies them out and empties
+ * it; a line read under another while it is read (`readsUnder`) is an unknown line, which does not
+ * use it.
+ */
+const LINE_ISSUES: SyntaxIssue[] = [];
+
+function lineIssues(): SyntaxIssue[] {
+  // Empty unless a line threw part-way (see `parseLine`).
+  if (LINE_ISSUES.length > 0) LINE_ISSUES.length = 0;
+  return LINE_ISSUES;
+}
+
+function keptIssues(issues: SyntaxIssue[]): readonly SyntaxIssue[] {
+  if (issues.length === 0) return NONE;
+  const kept = issues.slice();
+  issues.length = 0;
+  return kept;
 }
 
 function unknownSectionIssue(first: Token, body: string, line: number): SyntaxIssue {
@@ -345,7 +380,7 @@ function leaveOutFullStop(chunks: Word[], issues: SyntaxIssue[]): void {
 // ── timepoints ──────────────────────────────────────────────────────────
 
 function parseTimepoint(body: string, chunks: Word[], line: number, text: string, comment: Token | null): LineNode {
-  const issues: SyntaxIssue[] = [];
+  const issues = lineIssues();
   const first = chunks[0]!;
   // `@, 08:00`: a comma between `@` and the time; one between the time and the label is kept.
   if (first.afterComma || (first.text.length === 1 && chunks[1]?.afterComma)) strayCommas(body, chunks, first.text.length === 1, false, issues);
@@ -367,7 +402,7 @@ function parseTimepoint(body: string, chunks: Word[], line: number, text: string
   const c0 = chunks[at];
   if (!c0) {
     issues.push({ check: 'bad-time', span: marker.span, message: 'A timepoint needs a time: `@ day 1 07:40`, `@ 07:40` or `@ +2h30`.', fixes: [] });
-  } else if (lowerCase(c0.text) === 'day') {
+  } else if (c0.end - c0.start === 3 && lowerCase(c0.text) === 'day') {
     const c1 = chunks[at + 1];
     // The number is left in SCANNED (no object per timepoint): read before anything scans again.
     const dayLength = c1 ? scanNumber(c1.text) : 0;
@@ -378,10 +413,10 @@ function parseTimepoint(body: string, chunks: Word[], line: number, text: string
     } else if (day > MAX_DAY) {
       issues.push({ check: 'bad-time', span: c1.span, message: `\`day ${c1.text}\` is beyond the last day a note can name (day ${MAX_DAY}).`, fixes: [] });
       const c2 = chunks[at + 2];
-      used = c2 && readClock(c2.text) !== null ? 3 : 2;
+      used = c2 && clockAt(body, c2.start, c2.end) !== null ? 3 : 2;
     } else {
       const c2 = chunks[at + 2];
-      const clock = c2 ? readClock(c2.text) : null;
+      const clock = c2 ? clockAt(body, c2.start, c2.end) : null;
       if (c2 && clock !== null) {
         time = new TimeNode('clock', day, clock, body, c0.start, c2.end);
         used = 3;
@@ -398,7 +433,7 @@ function parseTimepoint(body: string, chunks: Word[], line: number, text: string
         time = new TimeNode('day', day, null, body, c0.start, c1.end);
       }
     }
-  } else if (c0.text.startsWith('+')) {
+  } else if (body.charCodeAt(c0.start) === 0x2b /* + */) {
     const minutes = readOffset(c0.text);
     used = 1;
     const over = minutes === null ? offsetOverflow(c0.text) : null;
@@ -415,7 +450,7 @@ function parseTimepoint(body: string, chunks: Word[], line: number, text: string
       time = new TimeNode('offset', null, compact(minutes), body, c0.start, c0.end);
     }
   } else {
-    const clock = readClock(c0.text);
+    const clock = clockAt(body, c0.start, c0.end);
     used = 1;
     if (clock !== null) {
       time = new TimeNode('clock', null, clock, body, c0.start, c0.end);
@@ -431,7 +466,7 @@ function parseTimepoint(body: string, chunks: Word[], line: number, text: string
   const l0 = chunks[at + used];
   const labelEnd = l0 ? proseEnd(body) : 0;
   const label: Token | null = l0 ? token(body.slice(l0.start, labelEnd), l0.start, labelEnd) : null;
-  return { kind: 'timepoint', line, text, comment, marker, time, label, issues: issues.length === 0 ? NONE : issues };
+  return { kind: 'timepoint', line, text, comment, marker, time, label, issues: keptIssues(issues) };
 }
 
 /**
@@ -531,13 +566,24 @@ function looksLikeDate(text: string): boolean {
 
 /** `H:MM` or `HH:MM` (also `HHMM`h-free forms are not accepted) → minutes after midnight. */
 export function readClock(text: string): number | null {
-  const colon = text.indexOf(':');
-  if (colon < 1 || colon > 2 || text.length !== colon + 3) return null;
-  for (let i = 0; i < text.length; i++) if (i !== colon && !isDigit(text.charCodeAt(i))) return null;
-  const h = Number(text.slice(0, colon));
-  const m = Number(text.slice(colon + 1));
+  return clockAt(text, 0, text.length);
+}
+
+/** `readClock` of `[start, end)` of `text`, read in place (a timepoint line's time is not cut out of it). */
+function clockAt(text: string, start: number, end: number): number | null {
+  const colon = text.indexOf(':', start) - start;
+  if (colon < 1 || colon > 2 || end - start !== colon + 3) return null;
+  let h = 0;
+  let m = 0;
+  for (let i = 0; i < end - start; i++) {
+    if (i === colon) continue;
+    const c = text.charCodeAt(start + i);
+    if (!isDigit(c)) return null;
+    if (i < colon) h = h * 10 + c - 0x30;
+    else m = m * 10 + c - 0x30;
+  }
   if (h > 23 || m > 59) return null;
-  return compact(h * 60 + m);
+  return h * 60 + m;
 }
 
 /**
