@@ -31,6 +31,14 @@ export interface ValueExtras {
 
 const NO_EXTRAS: ValueExtras = {};
 
+/** Extras giving only the decimals: one shared object per number of decimals (values shown beside a limit). */
+const WITH_DECIMALS: readonly ValueExtras[] = Array.from({ length: 9 }, (_, d) => Object.freeze({ decimals: d }));
+
+export function withDecimals(decimals: number | undefined): ValueExtras {
+  if (decimals === undefined) return NO_EXTRAS;
+  return WITH_DECIMALS[decimals] ?? { decimals };
+}
+
 /**
  * The oxygen flow of a room-air line, when one above zero is written (`oxygen room air 2`); null
  * otherwise. Room air is no added oxygen, so such a line gives no FiO2 (and PN310 reports it).
@@ -43,7 +51,8 @@ export function flowOnRoomAir(values: ValuesInForce): number | null {
 }
 
 export type Outcome =
-  | ({ readonly kind: 'value'; readonly value: number; readonly terms: readonly Term[] } & ValueExtras)
+  // The extras by reference: most values give none or one shared object (no copy per value).
+  | { readonly kind: 'value'; readonly value: number; readonly terms: readonly Term[]; readonly extras: ValueExtras }
   | { readonly kind: 'missing'; readonly needs: readonly string[] }
   | { readonly kind: 'na'; readonly reason: string };
 
@@ -280,7 +289,7 @@ export class DeriveContext {
 
   value(value: number | null, terms: readonly (Term | null)[], extra: ValueExtras = NO_EXTRAS): Outcome {
     if (value === null || !Number.isFinite(value)) return NOT_IN_DOMAIN;
-    return { kind: 'value', value, terms: withoutNulls(terms), range: extra.range, notes: extra.notes, estimate: extra.estimate, formula: extra.formula, decimals: extra.decimals };
+    return { kind: 'value', value, terms: withoutNulls(terms), extras: extra };
   }
 
   /** What to add to get another derived value (its own missing inputs), for messages. */
@@ -433,22 +442,23 @@ class ComputedValue implements DerivedValue {
   #term: Term | null = null;
 
   constructor(def: DerivedDefinition, outcome: ValueOutcome, carried: boolean, line: number | null) {
+    const extras = outcome.extras;
     this.id = def.id;
     this.label = def.label;
     this.short = def.short;
     this.category = def.category;
     this.value = outcome.value;
     this.unit = def.unit;
-    this.decimals = outcome.decimals ?? def.decimals;
-    this.range = outcome.range ?? null;
-    this.formula = outcome.formula ? shownFormula(outcome.formula) : def.shownFormula;
+    this.decimals = extras.decimals ?? def.decimals;
+    this.range = extras.range ?? null;
+    this.formula = extras.formula ? shownFormula(extras.formula) : def.shownFormula;
     this.inputs = outcome.terms;
     this.source = def.source;
-    this.estimate = outcome.estimate ?? false;
-    this.notes = outcome.notes ?? NONE;
+    this.estimate = extras.estimate ?? false;
+    this.notes = extras.notes ?? NONE;
     this.usesCarried = carried;
     this.line = line;
-    this.template = outcome.formula ?? def.formula;
+    this.template = extras.formula ?? def.formula;
   }
 
   /** This value as an input of another formula, named `name`: one object for the name most asked for. */

@@ -14,7 +14,7 @@ import {
   roxIndex,
   sfRatio,
 } from '../physiology';
-import { defineDerived, type DeriveContext, type Term, type ValueExtras } from './context';
+import { defineDerived, withDecimals, type DeriveContext, type Term, type ValueExtras } from './context';
 import { decimalsAgainst } from '../util/format';
 import { SEA_LEVEL_MMHG } from './atmosphere';
 
@@ -102,7 +102,7 @@ export const aaGradientDef = defineDerived({
     if (g < 0) return c.value(0, [pA, pa], { notes: ['PaO2 within rounding of the alveolar PO2: gradient shown as 0'] });
     // Shown beside its upper normal for age: with the decimals that keep it on its side of it.
     const upper = upperNormalFor(c);
-    return c.value(g, [pA, pa], upper === null ? undefined : { decimals: decimalsAgainst(g, 0, upper) });
+    return c.value(g, [pA, pa], withDecimals(upper === null ? undefined : decimalsAgainst(g, 0, upper)));
   },
 });
 

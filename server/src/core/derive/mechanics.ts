@@ -14,7 +14,7 @@ import {
   ventilatoryRatio,
   vtPerKgPbw,
 } from '../physiology';
-import { defineDerived } from './context';
+import { defineDerived, withDecimals } from './context';
 import { decimalsAgainst } from '../util/format';
 
 export const minuteVentilation = defineDerived({
@@ -95,7 +95,7 @@ export const drivingPressureDef = defineDerived({
     if (!peep) return c.missing([peep, 'peep']);
     const dp = drivingPressure(plat.value, peep.value);
     // Shown beside the 15 cmH2O flag (PN405): 15.4 as 15.4, not as 15 next to "above 15".
-    return c.value(dp, [plat, peep], { decimals: dp === null ? undefined : decimalsAgainst(dp, 0, DRIVING_PRESSURE_FLAG_CMH2O) });
+    return c.value(dp, [plat, peep], withDecimals(dp === null ? undefined : decimalsAgainst(dp, 0, DRIVING_PRESSURE_FLAG_CMH2O)));
   },
 });
 
