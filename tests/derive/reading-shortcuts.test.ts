@@ -10,7 +10,7 @@ import { DERIVED } from '../../server/src/core/derive/registry';
 import { FIELDS } from '../../server/src/core/fields/registry';
 import { withDefaults } from '../../server/src/core/settings';
 import type { Kept } from '../../server/src/core/util/small-store';
-import { derivation, readings } from './helpers';
+import { derivation, derived, readings } from './helpers';
 
 describe('readings of a timepoint without a gas', () => {
   it('are none, whatever is in force from earlier timepoints', () => {
@@ -118,6 +118,10 @@ describe('what a derivation context reads of the values in force', () => {
           // Asked again: the same answers, and the same term object for the same name.
           expect(readFirst.statedHere(f.id)).toBe(here);
           expect(readFirst.field(f.id)).toBe(readFirst.field(f.id));
+          // The number alone, asked before and after the field is read, is the term's number.
+          const numberOnly = new DeriveContext(tp, settings, table).number(f.id);
+          expect(numberOnly).toBe(readFirst.field(f.id)?.value ?? null);
+          expect(readFirst.number(f.id)).toBe(numberOnly);
         }
       }
     }
@@ -136,5 +140,27 @@ describe('what a derivation context reads of the values in force', () => {
     expect(c.memo(third)).toBeUndefined();
     expect(c.memo(third)).toBeUndefined();
     expect(computed).toEqual({ a: 1, b: 1, c: 1 });
+  });
+});
+
+describe('inputs shared from timepoint to timepoint', () => {
+  it('give the respiratory quotient of the settings each note is checked with', () => {
+    const note = '@ 08:00\noxygen room air\nabg 7.40/40/90/24';
+    const rq = (settings: Parameters<typeof derived>[2]) => derived(note, 'pao2_alveolar', settings).inputs.find((t) => t.name === 'RQ')?.value;
+    expect(rq({})).toBe(0.8);
+    expect(rq({ respiratoryQuotient: 1 })).toBe(1);
+    expect(rq({})).toBe(0.8);
+  });
+
+  it('name each temperature stated beside PH2O, repeated or not, with the field’s decimals', () => {
+    const note = ['@ 08:00', 'oxygen room air', 'vitals temp 38.1 C', 'abg 7.40/40/90/24', '@ 09:00', 'vitals temp 38.1 C', 'abg 7.40/40/90/24', '@ 10:00', 'vitals temp 100.4 F', 'abg 7.40/40/90/24', '@ 11:00', 'abg 7.40/40/90/24'].join('\n');
+    const ph2o = (tp: number) => derived(note, 'pio2', {}, tp).inputs.find((t) => t.name === 'PH2O')!;
+    const why = 'humidified at 37 °C, the pinned convention (setting waterVapour: fixed)';
+    expect(ph2o(0).origin).toEqual({ kind: 'default', description: `${why}; the temperature 38.1 °C stated here is not used` });
+    expect(ph2o(1).origin).toEqual(ph2o(0).origin);
+    // 100.4 °F = 38 °C, shown with one decimal as every temperature input.
+    expect(ph2o(2).origin).toEqual({ kind: 'default', description: `${why}; the temperature 38.0 °C stated here is not used` });
+    expect(ph2o(3).origin).toEqual({ kind: 'default', description: why });
+    expect(ph2o(0).value).toBe(47);
   });
 });
