@@ -4,8 +4,8 @@
  * sense in another unit).
  */
 import { canonicalWord, FIELDS, keysInSection, type FieldDef } from '../fields/registry';
-import type { SectionId } from '../fields/sections';
-import { convert, unitById, unitsForSpelling, type UnitDef } from '../fields/units';
+import { SECTIONS, type SectionId } from '../fields/sections';
+import { convert, unitById, UNITS, unitsForSpelling, type UnitDef } from '../fields/units';
 import type { ItemNode, LineFix, PairValue } from '../syntax/tree';
 import { pairNumbers } from '../syntax/parser';
 import { formatNumber, wordList } from '../util/format';
@@ -18,32 +18,74 @@ export interface ReadContext extends BoundsContext {
   readonly gasUnit: 'mmHg' | 'kPa';
 }
 
+/** Section ids and unit ids by index, and back: a stated value keeps its section and units as indexes in one number. */
+const SECTION_IDS: readonly SectionId[] = SECTIONS.map((x) => x.id);
+const UNIT_IDS: readonly string[] = UNITS.map((u) => u.id);
+const SECTION_INDEX: ReadonlyMap<string, number> = new Map(SECTION_IDS.map((id, i) => [id, i]));
+const UNIT_INDEX: ReadonlyMap<string, number> = new Map(UNIT_IDS.map((id, i) => [id, i]));
+
+/** The flags of a stated value: bit 0 the unit was implied, bit 1 usable, then the section's index, the read unit's and the doubted unit's (plus 1; 0 for none). */
+const IMPLIED_FLAG = 1;
+const USABLE_FLAG = 2;
+const SECTION_SHIFT = 2;
+const SECTION_MASK = 0x1f;
+const READ_UNIT_SHIFT = 7;
+const DOUBT_SHIFT = 15;
+const UNIT_MASK = 0xff;
+
+// The indexes must fit their bits (a table grown past them would mix the flags up).
+if (SECTION_IDS.length > SECTION_MASK || UNIT_IDS.length >= UNIT_MASK) throw new Error('read-value: too many sections or units for the flags of a stated value');
+
+/** A unit id as an index plus 1 (0: none), for the flags of a stated value. */
+function unitCode(id: string | null): number {
+  if (id === null) return 0;
+  const index = UNIT_INDEX.get(id);
+  if (index === undefined) throw new Error(`unknown unit ${id}`); // unreachable: units come from the table
+  return index + 1;
+}
+
 /**
  * A stated value, one per value of a note, kept as long as the note: an object of one shape whose
  * field id and canonical unit are read from the item's field (the item knows it) rather than kept.
- * Its number, numbers or word share one field (a value has one of them), and its two flags one
- * number: a big note keeps tens of thousands of these.
+ * Its number, numbers or word share one field (a value has one of them), and its section, the unit
+ * it was read in, the unit it is doubted to be in and its two flags one number (indexes into the
+ * tables of sections and units): a big note keeps tens of thousands of these.
  */
 class Stated implements StatedValue {
   /** The canonical number, the canonical numbers of a pair, or the canonical word; null when unread. */
   private readonly data: number | readonly number[] | string | null;
-  /** 1: the unit was implied; 2: usable. */
+  /** See IMPLIED_FLAG and what follows it. */
   private readonly flags: number;
 
   constructor(
-    readonly section: SectionId,
+    section: SectionId,
     readonly line: number,
     readonly item: ItemNode,
     value: number | null,
     parts: readonly number[] | null,
     word: string | null,
-    readonly readUnit: string | null,
+    readUnit: string | null,
     unitImplied: boolean,
-    readonly unitDoubt: string | null,
+    unitDoubt: string | null,
     usable: boolean,
   ) {
     this.data = value ?? parts ?? word;
-    this.flags = (unitImplied ? 1 : 0) | (usable ? 2 : 0);
+    this.flags = (unitImplied ? IMPLIED_FLAG : 0) | (usable ? USABLE_FLAG : 0) | (SECTION_INDEX.get(section)! << SECTION_SHIFT) |
+      (unitCode(readUnit) << READ_UNIT_SHIFT) | (unitCode(unitDoubt) << DOUBT_SHIFT);
+  }
+
+  get section(): SectionId {
+    return SECTION_IDS[(this.flags >> SECTION_SHIFT) & SECTION_MASK]!;
+  }
+
+  get readUnit(): string | null {
+    const code = (this.flags >> READ_UNIT_SHIFT) & UNIT_MASK;
+    return code === 0 ? null : UNIT_IDS[code - 1]!;
+  }
+
+  get unitDoubt(): string | null {
+    const code = (this.flags >> DOUBT_SHIFT) & UNIT_MASK;
+    return code === 0 ? null : UNIT_IDS[code - 1]!;
   }
 
   get value(): number | null {
@@ -59,11 +101,11 @@ class Stated implements StatedValue {
   }
 
   get unitImplied(): boolean {
-    return (this.flags & 1) !== 0;
+    return (this.flags & IMPLIED_FLAG) !== 0;
   }
 
   get usable(): boolean {
-    return (this.flags & 2) !== 0;
+    return (this.flags & USABLE_FLAG) !== 0;
   }
 
   get fieldId(): string {
