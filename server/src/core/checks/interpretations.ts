@@ -43,8 +43,13 @@ function readingRange(ctx: TimepointContext, line: number): Range {
   const last = ctx.shared(LAST_RANGE);
   const node = ctx.analysis.tree.lines[line];
   if (last.range && last.node === node && last.line === line) return last.range;
-  const start = node?.kind === 'section' ? node.sectionToken.span.start : 0;
-  const end = node?.kind === 'section' ? (node.items[node.items.length - 1]?.span.end ?? node.sectionToken.span.end) : (node?.text.length ?? 0);
+  let start = 0;
+  let end: number;
+  if (node?.kind === 'section') {
+    const items = node.items;
+    start = node.sectionToken.span.start;
+    end = items.length > 0 ? items[items.length - 1]!.span.end : node.sectionToken.span.end;
+  } else end = node?.text.length ?? 0;
   last.node = node;
   last.line = line;
   last.range = toRange(line, { start, end });
