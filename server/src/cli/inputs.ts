@@ -13,7 +13,7 @@
  * on; inputs that hold no note at all give a one-line problem too, so a run pointed at the wrong
  * folder does not pass.
  */
-import { closeSync, existsSync, fstatSync, openSync, readFileSync, readSync, realpathSync, statSync, type Stats } from 'node:fs';
+import { closeSync, existsSync, fstatSync, lstatSync, openSync, readFileSync, readSync, realpathSync, statSync, type Stats } from 'node:fs';
 import { isUtf8 } from 'node:buffer';
 import { basename, dirname, isAbsolute, join, normalize, relative, resolve, sep } from 'node:path';
 import ignore, { type Ignore } from 'ignore';
@@ -38,7 +38,7 @@ export interface InputList {
   readonly problems: NoteInput[];
 }
 
-const toPosix = (p: string) => p.split(sep).join('/');
+const toPosix = sep === '/' ? (p: string) => p : (p: string) => p.split(sep).join('/');
 
 /** What one command-line argument brought in, for saying why nothing was found. */
 interface ArgumentYield {
@@ -150,17 +150,48 @@ function staticPrefix(pattern: string): string {
  */
 function onePathPerNote(paths: readonly string[], cwd: string): string[] {
   const seen = new Set<string>();
+  const realFolders = new Map<string, string | null>();
   return paths.filter((path) => {
-    let real: string;
-    try {
-      real = realpathSync.native(isAbsolute(path) ? path : join(cwd, path));
-    } catch {
-      return true;
-    }
+    const real = realPath(isAbsolute(path) ? path : join(cwd, path), realFolders);
+    if (real === null) return true;
     if (seen.has(real)) return false;
     seen.add(real);
     return true;
   });
+}
+
+/**
+ * `realpath` of a file, null when it cannot be resolved. A file that is not itself a symbolic link
+ * is where its folder really is, under its own name: the folder is resolved once for all its notes
+ * (`realFolders`) and the file costs one `lstat`, where resolving each path walks every folder
+ * above it again (a system call per folder, per note).
+ */
+function realPath(abs: string, realFolders: Map<string, string | null>): string | null {
+  const name = basename(abs);
+  let link = true;
+  if (name !== '' && name !== '.' && name !== '..') {
+    try {
+      link = lstatSync(abs).isSymbolicLink();
+    } catch {
+      link = true;
+    }
+  }
+  try {
+    if (link) return realpathSync.native(abs);
+    const folder = dirname(abs);
+    let real = realFolders.get(folder);
+    if (real === undefined) {
+      try {
+        real = realpathSync.native(folder);
+      } catch {
+        real = null;
+      }
+      realFolders.set(folder, real);
+    }
+    return real === null ? realpathSync.native(abs) : join(real, name);
+  } catch {
+    return null;
+  }
 }
 
 /** Byte-wise order of paths (the same on every machine and locale). */
@@ -177,7 +208,8 @@ function comparePaths(a: string, b: string): number {
  */
 function exclusions(cwd: string, exclude: readonly string[]): (path: string, root: string) => ExclusionSource | null {
   const ignoreFiles = new IgnoreFiles(cwd);
-  const fromArgs: Ignore = ignore().add([...exclude]);
+  // No pattern excludes nothing: no need to ask of each note.
+  const fromArgs: Ignore | null = exclude.length === 0 ? null : ignore().add([...exclude]);
   return (path: string, root: string) => {
     const abs = resolve(cwd, path);
     let rel = relative(cwd, abs);
@@ -185,7 +217,7 @@ function exclusions(cwd: string, exclude: readonly string[]): (path: string, roo
     if (!inCwd) rel = relative(root, abs);
     if (rel === '' || outside(rel)) return null;
     if (ignoreFiles.leaveOut(abs, inCwd, root)) return IGNORE_FILE;
-    if (fromArgs.ignores(toPosix(rel))) return '--exclude';
+    if (fromArgs?.ignores(toPosix(rel))) return '--exclude';
     return null;
   };
 }

@@ -3,10 +3,11 @@
  * with the settings of its project (pneumark.config.json found upward), and keep what the chosen
  * output needs. Everything returned is plain data, so it crosses a worker boundary by structured clone.
  */
-import { isAbsolute, join } from 'node:path';
+import { dirname, isAbsolute, join } from 'node:path';
 import { checkNote, type NoteResult } from '../core/check-note';
 import type { Settings } from '../core/settings';
 import type { Finding, Severity } from '../core/types';
+import { NONE } from '../core/util/lists';
 import { ProjectConfigs } from '../node/project-config';
 import { readNote, type NoteInput } from './inputs';
 import { timepointsJson } from './timepoints-json';
@@ -18,6 +19,7 @@ export type Task =
 export interface FileReport {
   readonly path: string;
   readonly problem: string | null;
+  /** The note's findings; for an export, only its first error finding, if any (all the exit code needs). */
   readonly findings: readonly Finding[];
   /** `check --format json`: the timepoints with values, derived values and readings. */
   readonly timepoints?: unknown[];
@@ -31,6 +33,8 @@ export type ExportRenderer = (path: string, result: NoteResult, task: Extract<Ta
 
 export class NoteWorker {
   private readonly configs = new ProjectConfigs();
+  /** The settings of the notes of each folder seen so far. */
+  private readonly settings = new Map<string, Partial<Settings>>();
 
   constructor(
     private readonly cwd: string,
@@ -45,8 +49,17 @@ export class NoteWorker {
    */
   settingsFor(path: string): Partial<Settings> {
     // `-` (standard input) stands for a note in the working folder.
-    const found = this.configs.forPath(isAbsolute(path) ? path : join(this.cwd, path));
-    return { ...(found?.config.settings ?? {}), ...this.overrides };
+    const abs = isAbsolute(path) ? path : join(this.cwd, path);
+    // Once per folder: a run reads each project file once, and notes of one folder share their
+    // settings (looking up a folder that has a project file costs a stat of that file each time).
+    const folder = dirname(abs);
+    let settings = this.settings.get(folder);
+    if (settings === undefined) {
+      const found = this.configs.forPath(abs);
+      settings = { ...(found?.config.settings ?? {}), ...this.overrides };
+      this.settings.set(folder, settings);
+    }
+    return settings;
   }
 
   run(path: string, task: Task, stdin: () => Buffer): FileReport {
@@ -56,7 +69,10 @@ export class NoteWorker {
     if (task.kind === 'check') {
       return { path: note.path, problem: null, findings: result.findings, ...(task.timepoints ? { timepoints: timepointsJson(result) } : {}) };
     }
-    return { path: note.path, problem: null, findings: result.findings, payload: this.exportRenderer?.(note.path, result, task) ?? null };
+    // An export's output is the payload; its findings only decide the exit code (an error or not),
+    // so one error stands for them all rather than every finding crossing back from a worker.
+    const error = result.findings.find((f) => f.severity === 'error');
+    return { path: note.path, problem: null, findings: error ? [error] : [], payload: this.exportRenderer?.(note.path, result, task) ?? null };
   }
 }
 
@@ -102,6 +118,21 @@ export function packFindings(findings: readonly Finding[]): PackedFindings {
   return { ranges, strings, extras };
 }
 
+/**
+ * One copy of each code, severity and documentation anchor (a few hundred strings, from the check
+ * registry), so the main thread keeps one string for each rather than three more objects per
+ * finding of the run: the copies a structured clone makes then die young instead of filling the
+ * old generation that every collection goes over.
+ */
+const SHARED = new Map<string, string>();
+
+function shared(text: string): string {
+  const known = SHARED.get(text);
+  if (known !== undefined) return known;
+  SHARED.set(text, text);
+  return text;
+}
+
 export function unpackFindings(packed: PackedFindings): Finding[] {
   const { ranges, strings } = packed;
   const findings = new Array<Finding>(ranges.length / 4);
@@ -109,12 +140,12 @@ export function unpackFindings(packed: PackedFindings): Finding[] {
   for (let k = 0; k < findings.length; k++) {
     const extra = packed.extras[e]?.index === k ? packed.extras[e++] : undefined;
     findings[k] = {
-      code: strings[4 * k]!,
-      severity: strings[4 * k + 1] as Severity,
+      code: shared(strings[4 * k]!),
+      severity: shared(strings[4 * k + 1]!) as Severity,
       message: strings[4 * k + 2]!,
       range: { start: { line: ranges[4 * k]!, character: ranges[4 * k + 1]! }, end: { line: ranges[4 * k + 2]!, character: ranges[4 * k + 3]! } },
-      fixes: extra?.fixes ?? [],
-      docAnchor: strings[4 * k + 3]!,
+      fixes: extra?.fixes ?? NONE,
+      docAnchor: shared(strings[4 * k + 3]!),
       ...(extra?.related ? { related: extra.related } : {}),
     };
   }
