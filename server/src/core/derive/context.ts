@@ -329,8 +329,9 @@ function defaultTermName(fieldId: string): string {
 }
 
 function termOf(input: InputValue, name?: string): Term {
-  const fieldId = input.stated.fieldId;
-  const field = fieldById(fieldId);
+  // The item read knows its field (the registry's row): no lookup by id.
+  const field = input.stated.item.field ?? fieldById(input.stated.fieldId);
+  const fieldId = field?.id ?? input.stated.fieldId;
   const unit = input.stated.unit === null || input.stated.unit === 'fraction' || input.stated.unit === 'ph' ? '' : displayUnit(input.stated.unit);
   return {
     name: name ?? field?.short ?? field?.aliases[0] ?? fieldId,
