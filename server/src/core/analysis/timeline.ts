@@ -118,10 +118,17 @@ export function buildTimelineIncremental(
   const lines = tree.lines;
   // Block 0: the lines before the first `@` (possibly none); then one block per `@` line. Blocks
   // are ranges of the line list, which the cache keeps (nothing is copied out of it).
-  const starts: number[] = [0];
-  for (let i = 0; i < lines.length; i++) if (lines[i]!.kind === 'timepoint') starts.push(i);
-  const entries: BlockEntry[] = [];
-  const timepoints: Timepoint[] = [];
+  // Lists as long as the note's timepoints are made at their length (grown by push, each would be
+  // copied a dozen times on the way).
+  let blocks = 1;
+  for (let i = 0; i < lines.length; i++) if (lines[i]!.kind === 'timepoint') blocks++;
+  const starts = new Array<number>(blocks);
+  starts[0] = 0;
+  for (let i = 0, b = 1; i < lines.length; i++) if (lines[i]!.kind === 'timepoint') starts[b++] = i;
+  const entries = new Array<BlockEntry>(blocks);
+  // A timepoint per block, but for block 0 when the note has nothing before its first `@`: cut at the end.
+  const timepoints = new Array<Timepoint>(blocks);
+  let count = 0;
   const header: StatedValue[] = [];
   const readIssues: ReadIssue[] = [];
   const moved = new Map<Timepoint, Timepoint>();
@@ -131,7 +138,7 @@ export function buildTimelineIncremental(
   for (let b = 0; b < starts.length; b++) {
     const start = starts[b]!;
     const end = b + 1 < starts.length ? starts[b + 1]! : lines.length;
-    const index = timepoints.length;
+    const index = count;
     const endLine = end - 1;
     const old = usable[b];
     let result: BlockResult | null = null;
@@ -148,13 +155,14 @@ export function buildTimelineIncremental(
     }
     // A block taken from the cache with the very same incoming state keeps its entry (a big note
     // has thousands of blocks, and an edit changes one).
-    entries.push(old && result === old.result && old.stateIn === state ? old : { start, index, endLine, stateIn: state, result });
-    if (result.timepoint) timepoints.push(result.timepoint);
+    entries[b] = old && result === old.result && old.stateIn === state ? old : { start, index, endLine, stateIn: state, result };
+    if (result.timepoint) timepoints[count++] = result.timepoint;
     // Indexed: both lists are empty in most blocks.
     for (let k = 0; k < result.header.length; k++) header.push(result.header[k]!);
     for (let k = 0; k < result.issues.length; k++) readIssues.push(result.issues[k]!);
     state = result.stateOut;
   }
+  timepoints.length = count;
   return { timeline: { timepoints, readIssues, header, headerGasUnit: headerGasUnit(header, settings) }, cache: { settings, lines, blocks: entries }, moved };
 }
 
@@ -554,10 +562,18 @@ function hold(base: HeldMap, stated: readonly (StatedValue | undefined)[], from:
   for (let k = from; k < to; k++) {
     const s = stated[k]!;
     if (READING_FIELDS.has(s.fieldId)) continue;
-    next ??= new Map(base);
+    if (next === null) {
+      // Copied with forEach: `new Map(base)` goes through an iterator, an object per entry.
+      next = new Map();
+      base.forEach(copyInto, next);
+    }
     next.set(s.fieldId, { stated: s, timepoint: tp, label });
   }
   return next ?? base;
+}
+
+function copyInto(this: Map<string, Held>, held: Held, id: string): void {
+  this.set(id, held);
 }
 
 /** Holds the settings among `stated[from, to)`, the values of one `section` line. */
