@@ -919,17 +919,19 @@ let NUMBER_LENGTH = 0;
 /** What implies an item's key (index 0: the key is written), and the flag of a decimal comma, kept in one number. */
 const IMPLIED: readonly ItemNode['implied'][] = [null, 'shorthand', 'device', 'device-flow'];
 const IMPLIED_MASK = 3;
+const SHORTHAND = 1;
 const DECIMAL_COMMA = 4;
 
 /**
  * An item: `key value [unit]`, or a value whose key is implied by its place (a shorthand gas part,
  * an oxygen device and its flow). Every item is of this one class (so code that reads items sees
- * one shape). It is its own span (`span` returns the item, which holds `start` and `end`).
+ * one shape). It is its own span (`span` returns the item, which has `start` and `end`).
  *
  * A big note keeps one item per value, so an item keeps its parts flat rather than as objects of
- * their own: its key's text (the key starts the item), a number value's digits (where they are and
+ * their own: its key's text (the key starts the item), a number value's digits (where they end and
  * what they read as) and its unit's text and start. `key`, `value` and `unit` build the token or
  * the number when asked; a pair or a word value is kept as it is. One object per item instead of three.
+ * Where the item ends, and where its number starts, follow from the rest (see `end`, `numStart`).
  */
 class Item implements ItemNode, Span {
   /** The key as written, or for an implied key the key it stands for (see `flags`). */
@@ -945,7 +947,6 @@ class Item implements ItemNode, Span {
    */
   private readonly source: string;
   private readonly num: number | null;
-  private readonly numStart: number;
   private readonly numEnd: number;
   readonly unitText: string | null;
   private readonly unitStart: number;
@@ -958,22 +959,39 @@ class Item implements ItemNode, Span {
     other: PairValue | WordValue | null,
     source: string,
     num: number | null,
-    numStart: number,
     numEnd: number,
     numComma: boolean,
     unit: Located | null,
     readonly start: number,
-    readonly end: number,
   ) {
     this.name = implied === null && keyText !== null ? keyText : keyName;
     this.flags = IMPLIED.indexOf(implied) | (numComma ? DECIMAL_COMMA : 0);
     this.other = other;
     this.source = source;
     this.num = num === null ? null : compact(num);
-    this.numStart = numStart;
     this.numEnd = numEnd;
     this.unitText = unit?.text ?? null;
     this.unitStart = unit?.start ?? 0;
+  }
+
+  /**
+   * Where the item ends: after its unit (but for a part of a shorthand gas, whose unit follows the
+   * whole gas), else after its value, else after its key.
+   */
+  get end(): number {
+    if (this.unitText !== null && (this.flags & IMPLIED_MASK) !== SHORTHAND) return this.unitStart + this.unitText.length;
+    if (this.other !== null) return this.other.span.end;
+    if (this.num !== null) return this.numEnd;
+    return this.start + this.name.length;
+  }
+
+  /** Where a number value starts: an implied key's item starts with it, a written key is followed by blanks and then it. */
+  private get numStart(): number {
+    if ((this.flags & IMPLIED_MASK) !== 0) return this.start;
+    const source = this.source;
+    let at = this.start + this.name.length;
+    while (isBlank(source.charCodeAt(at))) at++;
+    return at;
   }
 
   get implied(): ItemNode['implied'] {
@@ -1026,13 +1044,13 @@ class Item implements ItemNode, Span {
 }
 
 /** An item whose value is a pair, a word or nothing. */
-function otherItem(keyText: string | null, keyName: string, implied: ItemNode['implied'], field: FieldDef | null, value: PairValue | WordValue | null, unit: Located | null, start: number, end: number): Item {
-  return new Item(keyText, keyName, implied, field, value, '', null, 0, 0, false, unit, start, end);
+function otherItem(keyText: string | null, keyName: string, implied: ItemNode['implied'], field: FieldDef | null, value: PairValue | WordValue | null, unit: Located | null, start: number): Item {
+  return new Item(keyText, keyName, implied, field, value, '', null, 0, false, unit, start);
 }
 
-/** An item whose value is the number `value` written at `[numStart, numEnd)` of `source`. */
-function numberItem(keyText: string | null, keyName: string, implied: ItemNode['implied'], field: FieldDef | null, source: string, value: number, numStart: number, numEnd: number, comma: boolean, unit: Located | null, start: number): Item {
-  return new Item(keyText, keyName, implied, field, null, source, value, numStart, numEnd, comma, unit, start, unit ? unit.end : numEnd);
+/** An item whose value is the number `value` written up to `numEnd` of `source` (see `Item.numStart`). */
+function numberItem(keyText: string | null, keyName: string, implied: ItemNode['implied'], field: FieldDef | null, source: string, value: number, numEnd: number, comma: boolean, unit: Located | null, start: number): Item {
+  return new Item(keyText, keyName, implied, field, null, source, value, numEnd, comma, unit, start);
 }
 
 const SHORTHAND_KEYS = ['ph', 'pco2', 'po2', 'hco3'] as const;
@@ -1154,7 +1172,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
           // Positions come back from the list whole but maybe as floating-point (it holds values too): `compact` keeps them unboxed.
           const start = compact(p[4 * k + 1]!);
           const end = compact(p[4 * k + 2]!);
-          items[count++] = new Item(null, keyName, 'shorthand', fieldFor(section, keyName) ?? null, null, source, p[4 * k]!, start, end, p[4 * k + 3] === 1, isPressure ? unit : null, start, end);
+          items[count++] = new Item(null, keyName, 'shorthand', fieldFor(section, keyName) ?? null, null, source, p[4 * k]!, end, p[4 * k + 3] === 1, isPressure ? unit : null, start);
         }
       }
     }
@@ -1166,7 +1184,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
     if (dev) {
       i = start + dev.used;
       const value: WordValue = { kind: 'word', text: dev.text, span: dev.span };
-      items[count++] = otherItem(null, 'device', 'device', fieldFor(section, 'device') ?? null, value, null, dev.span.start, dev.span.end);
+      items[count++] = otherItem(null, 'device', 'device', fieldFor(section, 'device') ?? null, value, null, dev.span.start);
       const next = chunks[i];
       if (next && !next.afterComma) {
         const length = numberChunk(next);
@@ -1177,7 +1195,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
           const unit = unitAfter(gluedUnit(next, length), chunks, i, section, source);
           i += UNIT_CHUNKS;
           const keyName = lowerCase(dev.text) === 'cpap' ? 'level' : 'flow';
-          items[count++] = numberItem(null, keyName, 'device-flow', fieldFor(section, keyName) ?? null, source, number, next.start, next.start + length, comma, unit, next.start);
+          items[count++] = numberItem(null, keyName, 'device-flow', fieldFor(section, keyName) ?? null, source, number, next.start + length, comma, unit, next.start);
         }
       }
     }
@@ -1241,7 +1259,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
           i++;
           unit = unitAfter(gluedUnit(next, length), chunks, i, section, source);
           i += UNIT_CHUNKS;
-          items[count++] = numberItem(key.text, keyName, null, field, source, number, next.start, next.start + length, comma, unit, key.start);
+          items[count++] = numberItem(key.text, keyName, null, field, source, number, next.start + length, comma, unit, key.start);
           if (field?.kind === 'pair') {
             // `bp 120`: a key that takes two numbers with one; nothing would be read from it.
             issues.push({ check: 'missing-value', span: { start: key.start, end: next.start + length }, message: `\`${key.text}\` takes two numbers joined by a slash (\`${key.text} 120/80\`); \`${next.text.slice(0, length)}\` is one, so it is not read.`, fixes: [] });
@@ -1253,8 +1271,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
     if (!value) {
       issues.push({ check: 'missing-value', span: key.span, message: `\`${key.text}\` has no value.`, fixes: [] });
     }
-    const end = unit ? unit.end : value ? value.span.end : key.end;
-    items[count++] = otherItem(key.text, keyName, null, field, value, unit, key.start, end);
+    items[count++] = otherItem(key.text, keyName, null, field, value, unit, key.start);
   }
 
   // Decimal commas anywhere in the line's numbers (few lines have one: asked of each item without building its number).
