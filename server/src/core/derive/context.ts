@@ -225,7 +225,7 @@ export class DeriveContext {
   /** Another derived value, computed once; null when it cannot be computed here. */
   derived(id: string, name?: string): Term | null {
     const d = this.evaluate(id);
-    return d instanceof ComputedValue ? d.term(name ?? d.short) : null;
+    return d instanceof ComputedValue ? { name: name ?? d.short, value: d.value, unit: d.unit, decimals: d.decimals, origin: { kind: 'derived', id } } : null;
   }
 
   derivedValue(id: string): DerivedValue | null {
@@ -439,8 +439,6 @@ class ComputedValue implements DerivedValue {
   readonly template: string;
   // An ES private field: not an own property, so comparing two values ignores whether it was built.
   #shown: string | null = null;
-  /** This value as an input of other formulas (`term`), under its short name usually. */
-  #term: Term | null = null;
 
   constructor(def: DerivedDefinition, outcome: ValueOutcome, carried: boolean, line: number | null) {
     const extras = outcome.extras;
@@ -460,15 +458,6 @@ class ComputedValue implements DerivedValue {
     this.usesCarried = carried;
     this.line = line;
     this.template = extras.formula ?? def.formula;
-  }
-
-  /** This value as an input of another formula, named `name`: one object for the name most asked for. */
-  term(name: string): Term {
-    const known = this.#term;
-    if (known !== null && known.name === name) return known;
-    const term: Term = { name, value: this.value, unit: this.unit, decimals: this.decimals, origin: { kind: 'derived', id: this.id } };
-    if (known === null) this.#term = term;
-    return term;
   }
 
   get substituted(): string {

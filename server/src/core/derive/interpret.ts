@@ -119,8 +119,8 @@ class Reading implements Interpretation {
   readonly notable: boolean;
   // ES private fields: not own properties, so comparing two readings looks at what they say.
   #gas: GasFacts | null;
-  #phrase: Phrase | null;
-  #text: string | null;
+  /** The text, or until it is first read, how to phrase it. */
+  #text: Phrase | string;
 
   constructor(topic: InterpretationTopic, basis: readonly string[], gas: GasFacts, notable: boolean, phrase: Phrase | string) {
     this.topic = topic;
@@ -128,17 +128,16 @@ class Reading implements Interpretation {
     this.line = gas.line;
     this.notable = notable;
     this.#gas = typeof phrase === 'string' ? null : gas;
-    this.#phrase = typeof phrase === 'string' ? null : phrase;
-    this.#text = typeof phrase === 'string' ? phrase : null;
+    this.#text = phrase;
   }
 
   get text(): string {
-    if (this.#text === null) {
-      this.#text = this.#phrase!(this.#gas!);
-      this.#gas = null;
-      this.#phrase = null;
-    }
-    return this.#text;
+    const known = this.#text;
+    if (typeof known === 'string') return known;
+    const text = known(this.#gas!);
+    this.#text = text;
+    this.#gas = null;
+    return text;
   }
 
   /** As JSON, the text is written as a field was (a getter is not an own property). */
