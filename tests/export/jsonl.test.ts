@@ -21,6 +21,16 @@ describe('JSON Lines', () => {
     });
   });
 
+  it('writes each record as JSON.stringify writes it (quotes, escapes, other scripts, redaction)', () => {
+    const note = '@ day 1 08:00  "quoted", back\\slash, tab\there, é中 😀\nvitals hr 90, spo2 91 %\nabg 7.31/52/61/26\n@ +2h\nvitals hr 85 bpm\n';
+    const cases = [...samples().map((s) => [s.path, s.result] as const), ['dir "x"/é.pneu', checked(note)] as const];
+    for (const [path, result] of cases) {
+      for (const options of [plain, { redactProse: true, shiftDays: -3 }]) {
+        expect(toJsonl(path, result, options)).toBe(jsonlRecords(path, result, options).map((r) => `${JSON.stringify(r)}\n`).join(''));
+      }
+    }
+  });
+
   it('lists the findings of each timepoint with 1-based line and UTF-16 column', () => {
     const s = samples().find((x) => x.name === 'icu-ventilated-lung-injury')!;
     const [first] = jsonlRecords(s.path, s.result, plain);

@@ -40,7 +40,12 @@ const exportOptions = z.object({
 
 type ExportTask = Parameters<ExportRenderer>[2];
 
-/** What one note contributes to the export (plain data, so it can come back from a worker). */
+/**
+ * What one note contributes to the export, as the text written for it: CSV records, JSON Lines,
+ * or the note's FHIR bundle as written in the array (null when it is more JSON than one string can
+ * hold). Text, made where the note was analysed: a string crosses back from a worker in one copy,
+ * where a bundle's objects would be cloned one by one and then written out by the main thread.
+ */
 export const exportRenderer: ExportRenderer = (path: string, result: NoteResult, task: ExportTask) => {
   const options = { redactProse: task.redactProse, shiftDays: task.shiftDays };
   if (task.format === 'csv') {
@@ -48,7 +53,7 @@ export const exportRenderer: ExportRenderer = (path: string, result: NoteResult,
     return timepointCells(path, result, options).map((cells) => csvCells(cells, csv)).join('');
   }
   if (task.format === 'jsonl') return toJsonl(path, result, options);
-  return toFhirBundle(path, result, { ...options, ...(task.anchor ? { anchor: task.anchor } : {}) });
+  return bundleText(toFhirBundle(path, result, { ...options, ...(task.anchor ? { anchor: task.anchor } : {}) }));
 };
 
 /** Why a note's FHIR bundle is left out of the export. */
@@ -88,10 +93,10 @@ export async function runExport(args: readonly string[], io: Io): Promise<number
       if (typeof payload === 'string') output.write(payload);
     } else if (opts.format === 'jsonl') {
       if (typeof payload === 'string' && payload.length > 0) output.write(payload.endsWith('\n') ? payload : `${payload}\n`);
-    } else if (payload) {
-      const bundle = bundleText(payload);
-      if (bundle === null) return TOO_BIG_BUNDLE;
-      output.write(`${bundles++ === 0 ? '' : ',\n'}${bundle}`);
+    } else if (typeof payload === 'string') {
+      output.write(`${bundles++ === 0 ? '' : ',\n'}${payload}`);
+    } else if (payload === null && r.problem === null) {
+      return TOO_BIG_BUNDLE;
     }
     return r.problem;
   };

@@ -16,7 +16,7 @@
 import type { NoteResult } from '../check-note';
 import { CHECKS } from '../checks/registry';
 import type { Finding, Severity } from '../types';
-import { exportColumns, findingsByTimepoint, timepointRows, type Cell, type ExportOptions, type Row } from './columns';
+import { exportColumns, findingsByTimepoint, timepointCells, timepointRows, type Cell, type ExportOptions, type Row } from './columns';
 
 export interface JsonlFinding {
   readonly code: string;
@@ -56,7 +56,21 @@ export function jsonlRecords(path: string, result: NoteResult, options: ExportOp
   });
 }
 
-/** The JSON Lines text of a note: one line per timepoint, each ending with `\n` ('' for no timepoints). */
+/** Each column's key as it opens a member of a record's JSON (`"file":`). */
+const MEMBER_KEYS: readonly string[] = exportColumns().map((c) => `${JSON.stringify(c.name)}:`);
+
+/**
+ * The JSON Lines text of a note: one line per timepoint, each ending with `\n` ('' for no
+ * timepoints). The bytes of `JSON.stringify` of each of `jsonlRecords`, written member by member
+ * from the row's cells: a record of a hundred keys built as an object (twice: the row, then the
+ * record) is a slow dictionary-mode object, only to be turned into text.
+ */
 export function toJsonl(path: string, result: NoteResult, options: ExportOptions): string {
-  return jsonlRecords(path, result, options).map((r) => `${JSON.stringify(r)}\n`).join('');
+  const findingsAt = findingsByTimepoint(result);
+  return timepointCells(path, result, options).map((cells, i) => {
+    const members = new Array<string>(cells.length);
+    for (let k = 0; k < cells.length; k++) members[k] = MEMBER_KEYS[k]! + JSON.stringify(cells[k] ?? null);
+    const findings = (findingsAt[i] ?? []).map((f) => jsonlFinding(f, options.redactProse));
+    return `{${members.join(',')},"findings":${JSON.stringify(findings)}}\n`;
+  }).join('');
 }
