@@ -14,7 +14,14 @@ function snapshot(r: NoteResult): unknown {
   return {
     findings: r.findings,
     timepoints: r.analysis.timeline.timepoints.map((tp) => ({ ...tp, values: [...tp.values.entries()].map(([k, v]) => [k, v.stated.value, v.stated.word, v.origin]) , stated: tp.stated.map((s) => [s.fieldId, s.value, s.line]) })),
-    derivations: allDerivations(r.analysis).map((d) => ({ timepoint: d.timepoint, derived: d.derived, missing: d.missing, notApplicable: d.notApplicable, interpretations: d.interpretations })),
+    // Texts built on first read (a getter, which toEqual does not compare) are named explicitly.
+    derivations: allDerivations(r.analysis).map((d) => ({
+      timepoint: d.timepoint,
+      derived: d.derived.map((v) => ({ ...v, substituted: v.substituted })),
+      missing: d.missing.map((m) => ({ ...m, message: m.message })),
+      notApplicable: d.notApplicable,
+      interpretations: d.interpretations.map((i) => ({ ...i, text: i.text })),
+    })),
   };
 }
 
