@@ -49,13 +49,17 @@ interface Held {
 
 type HeldMap = ReadonlyMap<string, Held>;
 
+/**
+ * The settings held at the end of a block. Most blocks hold nothing new (their lines are
+ * measurements) and hand on the state they were given, the same object; the time of the last
+ * timepoint, which every block changes, goes along beside it (`timeIn`, `timeOut`).
+ */
 interface CarryState {
   readonly patient: HeldMap;
   readonly place: HeldMap;
   readonly oxygen: HeldMap;
   readonly vent: HeldMap;
   readonly gasUnit: Held | null;
-  readonly lastTime: TimepointTime;
 }
 
 export interface Timeline {
@@ -75,6 +79,8 @@ interface BlockResult {
   readonly header: readonly StatedValue[];
   readonly issues: readonly ReadIssue[];
   readonly stateOut: CarryState;
+  /** The time of the last timepoint with a time, up to the end of the block. */
+  readonly timeOut: TimepointTime;
 }
 
 interface BlockEntry {
@@ -83,6 +89,7 @@ interface BlockEntry {
   readonly index: number;
   readonly endLine: number;
   readonly stateIn: CarryState;
+  readonly timeIn: TimepointTime;
   readonly result: BlockResult;
 }
 
@@ -95,7 +102,8 @@ export interface TimelineCache {
 }
 
 const EMPTY: HeldMap = new Map();
-const START_STATE: CarryState = Object.freeze({ patient: EMPTY, place: EMPTY, oxygen: EMPTY, vent: EMPTY, gasUnit: null, lastTime: { day: null, minutes: null } });
+const START_STATE: CarryState = Object.freeze({ patient: EMPTY, place: EMPTY, oxygen: EMPTY, vent: EMPTY, gasUnit: null });
+const START_TIME: TimepointTime = Object.freeze({ day: null, minutes: null });
 
 export function buildTimeline(tree: NoteTree, settings: Settings): Timeline {
   return buildTimelineIncremental(tree, settings, null).timeline;
@@ -134,6 +142,7 @@ export function buildTimelineIncremental(
   const moved = new Map<Timepoint, Timepoint>();
   const relocator = shift && shift.delta !== 0 && usable.length > 0 ? new Relocator(shift) : null;
   let state = START_STATE;
+  let time = START_TIME;
   const reading: Reading = { context: null };
   for (let b = 0; b < starts.length; b++) {
     const start = starts[b]!;
@@ -142,25 +151,26 @@ export function buildTimelineIncremental(
     const endLine = end - 1;
     const old = usable[b];
     let result: BlockResult | null = null;
-    if (old && old.index === index && old.endLine === endLine && old.start === start && sameNodes(previousLines, lines, start, end) && sameState(old.stateIn, state)) {
+    if (old && old.index === index && old.endLine === endLine && old.start === start && sameNodes(previousLines, lines, start, end) && sameState(old.stateIn, state) && sameTime(old.timeIn, time)) {
       result = old.result;
     } else if (old && relocator && old.index === index) {
-      result = relocator.block(old, previousLines, lines, start, end, state);
+      result = relocator.block(old, previousLines, lines, start, end, state, time);
       if (result?.timepoint && old.result.timepoint) moved.set(result.timepoint, old.result.timepoint);
     }
     if (!result) {
       // A block read again keeps its previous held values where they are equal, moved with the lines.
       const previousOut = old ? (relocator ? relocator.state(old.result.stateOut) : old.result.stateOut) : null;
-      result = processBlock(lines, start, end, index, state, settings, tree, previousOut, reading);
+      result = processBlock(lines, start, end, index, state, time, settings, tree, previousOut, reading);
     }
     // A block taken from the cache with the very same incoming state keeps its entry (a big note
     // has thousands of blocks, and an edit changes one).
-    entries[b] = old && result === old.result && old.stateIn === state ? old : { start, index, endLine, stateIn: state, result };
+    entries[b] = old && result === old.result && old.stateIn === state && old.timeIn === time ? old : { start, index, endLine, stateIn: state, timeIn: time, result };
     if (result.timepoint) timepoints[count++] = result.timepoint;
     // Indexed: both lists are empty in most blocks.
     for (let k = 0; k < result.header.length; k++) header.push(result.header[k]!);
     for (let k = 0; k < result.issues.length; k++) readIssues.push(result.issues[k]!);
     state = result.stateOut;
+    time = result.timeOut;
   }
   timepoints.length = count;
   return { timeline: { timepoints, readIssues, header, headerGasUnit: headerGasUnit(header, settings) }, cache: { settings, lines, blocks: entries }, moved };
@@ -180,21 +190,21 @@ class Relocator {
    * are not all the same lines moved, it is not the same timepoint, or its incoming state moved
    * is not `state`.
    */
-  block(old: BlockEntry, before: readonly LineNode[], lines: readonly LineNode[], start: number, end: number, state: CarryState): BlockResult | null {
+  block(old: BlockEntry, before: readonly LineNode[], lines: readonly LineNode[], start: number, end: number, state: CarryState, time: TimepointTime): BlockResult | null {
     const { end: movedFrom, delta } = this.shift;
     if (old.start < movedFrom || old.start + delta !== start || old.endLine + delta !== end - 1 || start === 0) return null;
     if (!sameNodesMoved(before, lines, start, end, delta)) return null;
     const first = lines[start]!;
     // `@` alone is labelled with its line number: the label moves, and with it the held values' labels.
     if (first.kind !== 'timepoint' || (!first.label && !first.time)) return null;
-    if (!sameState(this.state(old.stateIn), state)) return null;
+    if (!sameTime(old.timeIn, time) || !sameState(this.state(old.stateIn), state)) return null;
     const result = old.result;
     const issues = result.issues.length === 0 ? result.issues : this.issues(result.issues);
     if (!issues) return null;
     const tp = result.timepoint;
     const stateOut = this.state(result.stateOut);
     const header = result.header.length === 0 ? result.header : result.header.map((s) => this.stated(s));
-    return { timepoint: tp ? this.timepoint(tp, stateOut) : null, header, issues, stateOut };
+    return { timepoint: tp ? this.timepoint(tp, stateOut) : null, header, issues, stateOut, timeOut: result.timeOut };
   }
 
   private line(line: number): number {
@@ -254,7 +264,7 @@ class Relocator {
     const vent = this.map(s.vent);
     const gasUnit = s.gasUnit ? this.held(s.gasUnit) : null;
     const same = patient === s.patient && place === s.place && oxygen === s.oxygen && vent === s.vent && gasUnit === s.gasUnit;
-    const out: CarryState = same ? s : { patient, place, oxygen, vent, gasUnit, lastTime: s.lastTime };
+    const out: CarryState = same ? s : { patient, place, oxygen, vent, gasUnit };
     this.copies.set(s, out);
     return out;
   }
@@ -341,9 +351,12 @@ function sameMap(a: HeldMap, b: HeldMap): boolean {
 
 function sameState(a: CarryState, b: CarryState): boolean {
   return a === b || (
-    sameMap(a.patient, b.patient) && sameMap(a.place, b.place) && sameMap(a.oxygen, b.oxygen) && sameMap(a.vent, b.vent) &&
-    a.gasUnit === b.gasUnit && a.lastTime.day === b.lastTime.day && a.lastTime.minutes === b.lastTime.minutes
+    sameMap(a.patient, b.patient) && sameMap(a.place, b.place) && sameMap(a.oxygen, b.oxygen) && sameMap(a.vent, b.vent) && a.gasUnit === b.gasUnit
   );
+}
+
+function sameTime(a: TimepointTime, b: TimepointTime): boolean {
+  return a === b || (a.day === b.day && a.minutes === b.minutes);
 }
 
 /**
@@ -355,7 +368,7 @@ interface Reading {
 }
 
 /** Reads the block `lines[start, end)`. */
-function processBlock(lines: readonly LineNode[], start: number, end: number, index: number, stateIn: CarryState, settings: Settings, tree: NoteTree, previousOut: CarryState | null, reading: Reading): BlockResult {
+function processBlock(lines: readonly LineNode[], start: number, end: number, index: number, stateIn: CarryState, timeIn: TimepointTime, settings: Settings, tree: NoteTree, previousOut: CarryState | null, reading: Reading): BlockResult {
   const endLine = end - 1;
   // The block's values and issues are read into scratch space (processBlock never nests) and
   // copied out at their exact length: most blocks have no header values and no issues.
@@ -366,8 +379,14 @@ function processBlock(lines: readonly LineNode[], start: number, end: number, in
   const stated = STATED;
   let count = 0;
   const first = start < end ? lines[start] : undefined;
-  // Written out rather than spread: a spread copy keeps its fields outside the object, in a second one.
-  const mutable: MutableState = { patient: stateIn.patient, place: stateIn.place, oxygen: stateIn.oxygen, vent: stateIn.vent, gasUnit: stateIn.gasUnit, lastTime: stateIn.lastTime };
+  // The state as the block's lines change it, in scratch space: a new state is made only when it changed.
+  const mutable = WORKING;
+  mutable.patient = stateIn.patient;
+  mutable.place = stateIn.place;
+  mutable.oxygen = stateIn.oxygen;
+  mutable.vent = stateIn.vent;
+  mutable.gasUnit = stateIn.gasUnit;
+  let timeOut = timeIn;
   // Header values and timepoint values are told apart (a header line and a timepoint line of one block).
   const seenInHeader = SEEN_IN_HEADER.reset();
   const seenAtTimepoint = SEEN_AT_TIMEPOINT.reset();
@@ -377,8 +396,8 @@ function processBlock(lines: readonly LineNode[], start: number, end: number, in
   let tpStart = 0;
   let tpTime: TimepointTime = NO_TIME;
   if (first?.kind === 'timepoint') {
-    const time = timeOf(first, stateIn.lastTime, index === 0);
-    if (time.minutes !== null || time.day !== null) mutable.lastTime = time;
+    const time = timeOf(first, timeIn, index === 0);
+    if (time.minutes !== null || time.day !== null) timeOut = time;
     tpLine = tpStart = first.line;
     tpLabel = labelOf(first);
     tpTime = time;
@@ -407,7 +426,9 @@ function processBlock(lines: readonly LineNode[], start: number, end: number, in
   }
   SEEN_IN_HEADER.reset();
   SEEN_AT_TIMEPOINT.reset();
-  const stateOut = reuseEqual(mutable, previousOut);
+  const stateOut = reuseEqual(mutable, stateIn, previousOut);
+  mutable.patient = mutable.place = mutable.oxygen = mutable.vent = EMPTY;
+  mutable.gasUnit = null;
   const keptHeader = header ?? NONE;
   const keptIssues = issues.length === 0 ? NONE : issues.slice();
   issues.length = 0;
@@ -417,8 +438,8 @@ function processBlock(lines: readonly LineNode[], start: number, end: number, in
     keptStated[k] = stated[k]!;
     stated[k] = undefined;
   }
-  if (tpLabel === null) return { timepoint: null, header: keptHeader, issues: keptIssues, stateOut };
-  return { timepoint: freeze(index, tpLine, tpLabel, tpStart, tpTime, keptStated, endLine, stateOut, settings), header: keptHeader, issues: keptIssues, stateOut };
+  if (tpLabel === null) return { timepoint: null, header: keptHeader, issues: keptIssues, stateOut, timeOut };
+  return { timepoint: freeze(index, tpLine, tpLabel, tpStart, tpTime, keptStated, endLine, stateOut, settings), header: keptHeader, issues: keptIssues, stateOut, timeOut };
 }
 
 /** Scratch space of `processBlock`: the values stated at the block's timepoint, and its read issues. */
@@ -604,9 +625,20 @@ function firstOf(stated: readonly (StatedValue | undefined)[], from: number, to:
   return undefined;
 }
 
-/** Keeps the previous run's held values (and maps) where the recomputed ones are equal. */
-function reuseEqual(state: MutableState, previous: CarryState | null): CarryState {
-  if (!previous) return state;
+/** The state of `processBlock` (never nested), kept empty between blocks. */
+const WORKING: MutableState = { patient: EMPTY, place: EMPTY, oxygen: EMPTY, vent: EMPTY, gasUnit: null };
+
+/**
+ * The state a block hands on, from the working `state`: `stateIn` itself when the block held
+ * nothing new, else a state of its own, which keeps the previous run's held values (and maps)
+ * where the recomputed ones are equal.
+ */
+function reuseEqual(state: MutableState, stateIn: CarryState, previous: CarryState | null): CarryState {
+  if (!previous) {
+    if (state.patient === stateIn.patient && state.place === stateIn.place && state.oxygen === stateIn.oxygen && state.vent === stateIn.vent && state.gasUnit === stateIn.gasUnit) return stateIn;
+    // Written out rather than spread: a spread copy keeps its fields outside the object, in a second one.
+    return { patient: state.patient, place: state.place, oxygen: state.oxygen, vent: state.vent, gasUnit: state.gasUnit };
+  }
   const reuseMap = (now: HeldMap, before: HeldMap): HeldMap => {
     let same = now.size === before.size;
     const order = before.keys();
@@ -626,7 +658,6 @@ function reuseEqual(state: MutableState, previous: CarryState | null): CarryStat
     oxygen: reuseMap(state.oxygen, previous.oxygen),
     vent: reuseMap(state.vent, previous.vent),
     gasUnit,
-    lastTime: state.lastTime,
   };
 }
 
@@ -726,7 +757,22 @@ function isHereOnly(s: StatedValue): boolean {
 function freeze(index: number, line: number | null, label: string, startLine: number, time: TimepointTime, stated: readonly StatedValue[], endLine: number, state: CarryState, settings: Settings): Timepoint {
   const values = new ValuesAt(index, state, stated);
   const gasUnit = gasUnitInForce(state, settings);
-  return { index, line, label, startLine, endLine, time, stated, values, barometricMmhg: barometricInForce(state.place, settings), gasUnit, shownGasUnit: gasUnitWritten(stated) ?? gasUnit };
+  return { index, line, label, startLine, endLine, time, stated, values, barometricMmhg: barometricAt(state.place, settings), gasUnit, shownGasUnit: gasUnitWritten(stated) ?? gasUnit };
+}
+
+/**
+ * `barometricInForce` of the place held and the settings it was last asked for, kept with them: the
+ * place held changes at few timepoints, and one from an altitude is a formula with powers.
+ */
+const LAST_PLACE: { place: HeldMap | null; settings: Settings | null; mmhg: number | null } = { place: null, settings: null, mmhg: null };
+
+function barometricAt(place: HeldMap, settings: Settings): number | null {
+  if (LAST_PLACE.place !== place || LAST_PLACE.settings !== settings) {
+    LAST_PLACE.mmhg = barometricInForce(place, settings);
+    LAST_PLACE.place = place;
+    LAST_PLACE.settings = settings;
+  }
+  return LAST_PLACE.mmhg;
 }
 
 /** Fields whose values are gas pressures, in mmHg or kPa (the place's barometric pressure is a setting, not a gas). */
