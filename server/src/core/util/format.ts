@@ -1,10 +1,17 @@
 /** Number formatting shared by messages, fixes and output. Never prints NaN or Infinity. */
 export function formatNumber(value: number, decimals: number): string {
   if (!Number.isFinite(value)) return '—';
-  const fixed = value.toFixed(decimals < 0 ? 0 : decimals > 6 ? 6 : decimals);
+  const d = decimals < 0 ? 0 : decimals > 6 ? 6 : decimals;
+  // A whole number (most values a note states: hr 84, peep 10) is written without toFixed, which
+  // is the dearest step of formatting; the text is the same (String(-0) is '0', as wanted).
+  if (Number.isInteger(value) && value < 1e21 && value > -1e21 && Number.isInteger(d)) return d === 0 ? String(value) : String(value) + ZEROS[d]!;
+  const fixed = value.toFixed(d);
   // A negative number that rounds to zero prints as 0, not -0.
   return fixed.charCodeAt(0) === 45 && Number(fixed) === 0 ? fixed.slice(1) : fixed;
 }
+
+/** The decimals a whole number is written with, by count (0 to 6). */
+const ZEROS: readonly string[] = ['', '.0', '.00', '.000', '.0000', '.00000', '.000000'];
 
 /** A number with as few decimals as it needs, up to `max` (29.5, 30, 0.21). */
 export function formatShort(value: number, max = 2): string {
