@@ -10,7 +10,7 @@ import { readFileSync } from 'node:fs';
 const plain = (d: ReturnType<ReturnType<typeof checkNote>['analysis']['derivation']>) => ({
   timepoint: d.timepoint,
   derived: d.derived.map((v) => ({ ...v, substituted: v.substituted })),
-  missing: d.missing,
+  missing: d.missing.map((m) => ({ ...m, message: m.message })),
   notApplicable: d.notApplicable,
   // A reading's text is phrased on first read (a getter): compared as read.
   interpretations: d.interpretations.map((i) => ({ topic: i.topic, text: i.text, basis: i.basis, line: i.line, notable: i.notable })),

@@ -115,6 +115,12 @@ function relevantSlots(tp: Timepoint, ctx: DeriveContext): SlotMask {
   return mask;
 }
 
+/** Whether one of the definition's anchor inputs is stated here (its bit in `relevantSlots`). */
+function anchoredHere(def: DerivedDefinition, ctx: DeriveContext): boolean {
+  for (const id of def.anchors) if (ctx.statedHere(id)) return true;
+  return false;
+}
+
 /**
  * One derived value at a timepoint, when it is reported there (an anchor input is stated here)
  * and can be computed; the rest of the timepoint is not derived.
@@ -176,7 +182,11 @@ class TimepointValues implements TimepointDerivation {
   /** The value `id` when it is reported here (the same as finding it in `derived`). */
   value(id: string): DerivedValue | null {
     const slot = TABLE.slots.get(id);
-    if (slot === undefined || !hasSlot(this.mask(), slot)) return null;
+    if (slot === undefined) return null;
+    // Before the whole mask is made, only this definition's anchors are asked (a check that
+    // reads one value does not pay for the relevance of every other): the same answer, as a slot's
+    // bit is set exactly when one of its anchors is stated here.
+    if (this.relevant !== null ? !hasSlot(this.relevant, slot) : !anchoredHere(TABLE.list[slot]!, this.ctx)) return null;
     const r = this.ctx.evaluateSlot(slot);
     return r && 'value' in r ? r : null;
   }
