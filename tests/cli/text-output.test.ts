@@ -291,4 +291,21 @@ describe('--quiet', () => {
     expect(q.files[0]!.findings.length).toBe(a.summary.errors);
     expect(q.summary).toEqual(a.summary);
   });
+
+  it('still counts every finding in the totals line and for --max-warnings', async () => {
+    // A note with warnings and no error: --quiet lists nothing, yet counts its warnings.
+    const note = 'samples/icu-ventilated-lung-injury.pneu';
+    const all = io();
+    expect(await run(['check', note], all)).toBe(0);
+    const totals = all.out().trimEnd().split('\n').pop()!;
+    expect(totals).toMatch(/: 0 errors, [1-9]\d* warnings?, /);
+    const quiet = io();
+    expect(await run(['check', '--quiet', note], quiet)).toBe(0);
+    expect(quiet.out()).toBe(`${totals}\n`);
+    const warnings = Number(/(\d+) warnings?/.exec(totals)![1]);
+    const strict = io();
+    expect(await run(['check', '--quiet', '--max-warnings', String(warnings - 1), note], strict)).toBe(1);
+    expect(strict.err()).toContain(`pneumark: ${warnings} warning`);
+    expect(await run(['check', '--quiet', '--max-warnings', String(warnings), note], io())).toBe(0);
+  });
 });

@@ -20,7 +20,8 @@ import { runExport, exportRenderer } from './export-command';
 import { runFmt } from './fmt-command';
 import { listInputs, readNote } from './inputs';
 import { gather, type BatchDone, type WorkDone, type WorkItem } from './pool';
-import { CheckJsonWriter, jsonFileEntryOrProblem, writeCheckSarif, writeCheckText, type FileOutcome } from './render-check';
+import { CheckJsonWriter, countOutcome, jsonFileEntryOrProblem, writeCheckSarif, writeCheckText, type FileOutcome } from './render-check';
+import type { SeverityCounts } from './render-show';
 import { renderShow } from './render-show';
 import { Output } from './output';
 import { visible } from './visible';
@@ -115,8 +116,10 @@ async function check(args: readonly string[], io: Io): Promise<number> {
   const badConfig = reportConfigProblems(configs, io);
   for (const o of outcomes) if (o.problem) io.stderr.write(`pneumark: ${visible(o.path)}: ${visible(o.problem)}\n`);
   if (badConfig || outcomes.some((o) => o.problem)) return EXIT.usage;
-  if (outcomes.some((o) => o.findings.some((f) => f.severity === 'error'))) return EXIT.findings;
-  const warnings = outcomes.reduce((n, o) => n + o.findings.filter((f) => f.severity === 'warning').length, 0);
+  const total: SeverityCounts = { error: 0, warning: 0, information: 0, hint: 0 };
+  for (const o of outcomes) countOutcome(o, total);
+  if (total.error > 0) return EXIT.findings;
+  const warnings = total.warning;
   if (opts.maxWarnings !== undefined && warnings > opts.maxWarnings) {
     io.stderr.write(`pneumark: ${warnings} warnings, more than --max-warnings ${opts.maxWarnings}\n`);
     return EXIT.findings;

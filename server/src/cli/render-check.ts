@@ -19,6 +19,19 @@ export interface FileOutcome {
   readonly timepoints?: unknown[];
   /** The note's entry in the JSON output, already written out (by a worker: see `jsonFileEntry`). */
   readonly entry?: string;
+  /** Every finding of the note by severity, when `findings` keeps only the errors (`--quiet`). */
+  readonly counts?: SeverityCounts;
+}
+
+/** Adds a note's findings by severity to `into`: every finding, also those `--quiet` did not keep. */
+export function countOutcome(o: FileOutcome, into: SeverityCounts): SeverityCounts {
+  const c = o.counts;
+  if (c === undefined) return countSeverities(o.findings, into);
+  into.error += c.error;
+  into.warning += c.warning;
+  into.information += c.information;
+  into.hint += c.hint;
+  return into;
 }
 
 const aliasOf = new Map(CHECKS.map((c) => [c.code, c.alias]));
@@ -67,7 +80,7 @@ export async function writeCheckText(outcomes: readonly FileOutcome[], p: Paint,
     if (o.problem) {
       lines = `${visible(o.path)}: ${p.red('cannot check')}: ${visible(o.problem)}\n`;
     } else {
-      countSeverities(o.findings, total);
+      countOutcome(o, total);
       const path = visible(o.path);
       for (const f of o.findings) {
         if (quiet && f.severity !== 'error') continue;
@@ -132,7 +145,7 @@ export class CheckJsonWriter {
 
   /** Writes a note's entry; returns the note's problem (see `jsonFileEntryOrProblem`). */
   file(o: FileOutcome): string | null {
-    countSeverities(o.findings, this.total);
+    countOutcome(o, this.total);
     const { entry, problem } = o.entry !== undefined ? { entry: o.entry, problem: o.problem } : jsonFileEntryOrProblem(o, this.errorsOnly);
     if (problem) this.unreadable++;
     this.out.write(`${this.files++ === 0 ? '' : ','}\n    ${entry}`);

@@ -10,6 +10,7 @@ import type { Finding, Severity } from '../core/types';
 import { NONE } from '../core/util/lists';
 import { ProjectConfigs } from '../node/project-config';
 import { readNote, type NoteInput } from './inputs';
+import { countSeverities, type SeverityCounts } from './render-show';
 import { timepointsJson } from './timepoints-json';
 
 export type Task =
@@ -19,8 +20,13 @@ export type Task =
 export interface FileReport {
   readonly path: string;
   readonly problem: string | null;
-  /** The note's findings; for an export, only its first error finding, if any (all the exit code needs). */
+  /**
+   * The note's findings; with `counts`, only its errors (`check --quiet`); for an export, only its
+   * first error finding, if any (all the exit code needs).
+   */
   readonly findings: readonly Finding[];
+  /** Every finding of the note by severity, when `findings` keeps only the errors. */
+  readonly counts?: SeverityCounts;
   /** `check --format json`: the timepoints with values, derived values and readings. */
   readonly timepoints?: unknown[];
   /** `check --format json` in a worker: the note's entry in the output, written out (the timepoints left out above). */
@@ -67,7 +73,11 @@ export class NoteWorker {
     if (note.text === null) return { path: note.path, problem: note.problem, findings: [] };
     const result = checkNote(note.text, this.settingsFor(path));
     if (task.kind === 'check') {
-      return { path: note.path, problem: null, findings: result.findings, ...(task.timepoints ? { timepoints: timepointsJson(result) } : {}) };
+      const timepoints = task.timepoints ? { timepoints: timepointsJson(result) } : {};
+      // `--quiet` shows errors only and counts the rest: only the counts of the others are kept
+      // (and cross back from a worker), not a hundred thousand findings of a big folder.
+      if (task.errorsOnly) return { path: note.path, problem: null, findings: result.findings.filter((f) => f.severity === 'error'), counts: countSeverities(result.findings), ...timepoints };
+      return { path: note.path, problem: null, findings: result.findings, ...timepoints };
     }
     // An export's output is the payload; its findings only decide the exit code (an error or not),
     // so one error stands for them all rather than every finding crossing back from a worker.
@@ -78,10 +88,11 @@ export class NoteWorker {
 
 /**
  * What a command keeps of a report once the note's output is written (see `inOrder` in the pool):
- * its path, its problem (the writing may have found one) and its findings, for the exit code.
+ * its path, its problem (the writing may have found one) and its findings (and counts), for the
+ * exit code.
  */
 export function written(report: FileReport, problem: string | null): FileReport {
-  return { path: report.path, problem, findings: report.findings };
+  return { path: report.path, problem, findings: report.findings, ...(report.counts ? { counts: report.counts } : {}) };
 }
 
 /**
