@@ -25,6 +25,8 @@ export class Chunk implements Span {
 }
 
 export function isBlank(code: number): boolean {
+  // Most characters of a note are printable ASCII, none of them a blank: two comparisons for them.
+  if (code > 0x20 && code < 0xa0) return false;
   return (
     code === 0x20 || code === 0x09 || code === 0x0b || code === 0x0c || code === 0xa0 || code === 0xfeff ||
     code === 0x1680 || (code >= 0x2000 && code <= 0x200a) || code === 0x202f || code === 0x205f || code === 0x3000
