@@ -8,6 +8,15 @@ describe('lexer', () => {
     ]);
   });
 
+  it('cuts words at every blank, ASCII or not, and keeps a comma only between two digits', () => {
+    const line = '\u00a0a\tb\u3000c\u2003d\ufeffé,f ,7 8, 9,,x 1,2,3 ,5, 6';
+    expect(wordsOf(line).map((w) => [w.text, w.start, w.end, w.afterComma])).toEqual([
+      ['a', 1, 2, false], ['b', 3, 4, false], ['c', 5, 6, false], ['d', 7, 8, false], ['é', 9, 10, false], ['f', 11, 12, true],
+      ['7', 14, 15, true], ['8', 16, 17, false], ['9', 19, 20, true], ['x', 22, 23, true], ['1,2,3', 24, 29, false], ['5', 31, 32, true], ['6', 34, 35, true],
+    ]);
+    releaseWords();
+  });
+
   it('reuses its words for the next line; chunkLine gives chunks of their own', () => {
     const kept = chunkLine('abg po2 71');
     const first = wordsOf('vitals hr 80');

@@ -109,6 +109,19 @@ export function scanWord(word: Word): number {
   return length <= word.end - word.start ? length : scanNumber(word.text);
 }
 
+/** What a character is to `wordsOf`: part of a word (0), a blank or a comma. */
+const BLANK = 1;
+const COMMA = 2;
+/**
+ * The kind of each ASCII character, looked up in one read in the lexer's loop (most characters of
+ * a note are ASCII) instead of the comparisons of `isBlank` and the comma's; beyond ASCII, `isBlank`.
+ */
+const ASCII_KIND: Uint8Array = (() => {
+  const kinds = new Uint8Array(0x80);
+  for (let c = 0; c < 0x80; c++) kinds[c] = c === 0x2c ? COMMA : isBlank(c) ? BLANK : 0;
+  return kinds;
+})();
+
 /** Words reused from line to line, by their place in the line; a line longer than this gets words of its own beyond it. */
 const POOL: Word[] = [];
 const POOL_LIMIT = 4096;
@@ -158,23 +171,22 @@ export function wordsOf(body: string, from = 0, intern?: (body: string, start: n
   const n = body.length;
   while (i < n) {
     const c = body.charCodeAt(i);
-    if (isBlank(c)) { i++; continue; }
-    if (c === 0x2c /* , */) {
+    const kind = c < 0x80 ? ASCII_KIND[c]! : isBlank(c) ? BLANK : 0;
+    if (kind === BLANK) { i++; continue; }
+    if (kind === COMMA) {
       if (sawComma) LEXED.doubledComma = true;
       sawComma = true;
       i++;
       continue;
     }
     const start = i;
-    while (i < n) {
+    while (++i < n) {
       const d = body.charCodeAt(i);
-      if (isBlank(d)) break;
-      if (d === 0x2c) {
-        const prevDigit = i > start && isDigit(body.charCodeAt(i - 1));
-        const nextDigit = i + 1 < n && isDigit(body.charCodeAt(i + 1));
-        if (!(prevDigit && nextDigit)) break;
-      }
-      i++;
+      const dKind = d < 0x80 ? ASCII_KIND[d]! : isBlank(d) ? BLANK : 0;
+      if (dKind === 0) continue;
+      if (dKind === BLANK) break;
+      // A comma between two digits stays in its word (a decimal comma); the word has a character before it.
+      if (!(isDigit(body.charCodeAt(i - 1)) && i + 1 < n && isDigit(body.charCodeAt(i + 1)))) break;
     }
     const text = intern ? intern(body, start, i) : null;
     let word: Word;
