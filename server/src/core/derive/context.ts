@@ -133,6 +133,8 @@ export class DeriveContext {
   private memos: SmallStore<Kept<unknown, DeriveContext>, unknown> | null = null;
   /** The fields read so far, newest first. */
   private reads: FieldRead | null = null;
+  /** The FiO2 room air gives when no FiO2 is stated (null: not room air); undefined until asked. */
+  private airFio2: Term | null | undefined = undefined;
 
   constructor(
     readonly timepoint: Timepoint,
@@ -225,7 +227,7 @@ export class DeriveContext {
   /** Another derived value, computed once; null when it cannot be computed here. */
   derived(id: string, name?: string): Term | null {
     const d = this.evaluate(id);
-    return d instanceof ComputedValue ? { name: name ?? d.short, value: d.value, unit: d.unit, decimals: d.decimals, origin: { kind: 'derived', id } } : null;
+    return d instanceof ComputedValue ? d.asTerm(name ?? d.short) : null;
   }
 
   derivedValue(id: string): DerivedValue | null {
@@ -257,6 +259,12 @@ export class DeriveContext {
   fio2(): Term | null {
     const stated = this.field('fio2', 'FiO2');
     if (stated) return stated;
+    // Several formulas of a gas read the FiO2: the room-air term is worked out once.
+    if (this.airFio2 === undefined) this.airFio2 = this.roomAirFio2();
+    return this.airFio2;
+  }
+
+  private roomAirFio2(): Term | null {
     const device = this.word('device');
     // Room air with an oxygen flow (PN310) says oxygen is given, through a device not named.
     if (device?.word === 'room air' && flowOnRoomAir(this.timepoint.values) === null) {
@@ -437,8 +445,10 @@ class ComputedValue implements DerivedValue {
   readonly usesCarried: boolean;
   readonly line: number | null;
   readonly template: string;
-  // An ES private field: not an own property, so comparing two values ignores whether it was built.
+  // ES private fields: not own properties, so comparing two values ignores whether they were built.
   #shown: string | null = null;
+  /** The term other formulas read this value as (most read it under one name, several times a gas). */
+  #term: Term | null = null;
 
   constructor(def: DerivedDefinition, outcome: ValueOutcome, carried: boolean, line: number | null) {
     const extras = outcome.extras;
@@ -458,6 +468,13 @@ class ComputedValue implements DerivedValue {
     this.usesCarried = carried;
     this.line = line;
     this.template = extras.formula ?? def.formula;
+  }
+
+  /** This value as an input of another formula, under `name`. */
+  asTerm(name: string): Term {
+    const known = this.#term;
+    if (known !== null && known.name === name) return known;
+    return (this.#term = { name, value: this.value, unit: this.unit, decimals: this.decimals, origin: known?.origin ?? { kind: 'derived', id: this.id } });
   }
 
   get substituted(): string {

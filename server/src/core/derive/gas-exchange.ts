@@ -14,7 +14,7 @@ import {
   roxIndex,
   sfRatio,
 } from '../physiology';
-import { defineDerived, withDecimals, type DeriveContext, type Term, type ValueExtras } from './context';
+import { defineDerived, withDecimals, type DeriveContext, type Outcome, type Term, type ValueExtras } from './context';
 import { decimalsAgainst } from '../util/format';
 import { SEA_LEVEL_MMHG } from './atmosphere';
 
@@ -190,10 +190,13 @@ export const pfRatioAltitude = defineDerived({
     const pf = c.derived('pf_ratio', 'P/F');
     const pb = c.derived('barometric', 'PB');
     if (!pf || !pb) return c.missing([pf, c.lacking('pf_ratio')]);
-    if (pb.value >= SEA_LEVEL_MMHG - 20) return { kind: 'na', reason: 'barometric pressure is close to sea level' };
+    if (pb.value >= SEA_LEVEL_MMHG - 20) return NEAR_SEA_LEVEL;
     return c.value(pfRatioAltitudeAdjusted(pf.value, pb.value), [pf, pb]);
   },
 });
+
+/** Most notes are near sea level: one outcome serves every gas. */
+const NEAR_SEA_LEVEL: Outcome = { kind: 'na', reason: 'barometric pressure is close to sea level' };
 
 export const sfRatioDef = defineDerived({
   id: 'sf_ratio',
