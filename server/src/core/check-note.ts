@@ -98,8 +98,11 @@ export function runChecks(analysis: NoteAnalysis, settings: Settings, checks: re
     ctx.timepoint = timepoint;
     ctx.derivation = analysis.derivation(i);
     timepointShared.clear();
-    own = [];
-    for (const check of perTimepoint) {
+    // Without a cache the timepoint's findings go straight into the note's list (sorted below):
+    // no list per timepoint to make and copy.
+    own = cache ? [] : findings;
+    for (let k = 0; k < perTimepoint.length; k++) {
+      const check = perTimepoint[k]!;
       current = check;
       try {
         check.runTimepoint!(ctx);
@@ -107,8 +110,10 @@ export function runChecks(analysis: NoteAnalysis, settings: Settings, checks: re
         own.push(failed(check, error));
       }
     }
-    cache?.set(timepoint, own);
-    for (const f of own) findings.push(f);
+    if (cache) {
+      cache.set(timepoint, own);
+      for (const f of own) findings.push(f);
+    }
   }
   // Codes are ASCII (`PN410`): compared by code unit, the same order on every machine and locale.
   findings.sort((a, b) => comparePositions(a.range.start, b.range.start) || (a.code < b.code ? -1 : a.code > b.code ? 1 : 0));
@@ -116,16 +121,17 @@ export function runChecks(analysis: NoteAnalysis, settings: Settings, checks: re
 }
 
 function toFinding(check: CheckDef, r: Report): Finding {
-  return {
-    code: check.code,
-    severity: r.severity ?? check.severity,
-    // Kept as long as the note: in one piece, not the tree of parts it was built from.
-    message: ownString(r.message),
-    range: r.range,
-    fixes: r.fixes ?? NONE,
-    docAnchor: docAnchor(check),
-    ...(r.related ? { related: r.related } : {}),
-  };
+  const code = check.code;
+  const severity = r.severity ?? check.severity;
+  // Kept as long as the note: in one piece, not the tree of parts it was built from.
+  const message = ownString(r.message);
+  const fixes = r.fixes ?? NONE;
+  const anchor = docAnchor(check);
+  // Two literals rather than a spread of `related`: no object made only to be spread, and each
+  // literal makes its findings of one shape.
+  return r.related
+    ? { code, severity, message, range: r.range, fixes, docAnchor: anchor, related: r.related }
+    : { code, severity, message, range: r.range, fixes, docAnchor: anchor };
 }
 
 /**
