@@ -133,10 +133,20 @@ function intern(body: string, start: number, end: number): string | null {
   if (end - start <= INTERNED_LENGTH && startsWithAsciiLetter(c)) {
     const candidates = VOCABULARY_BY_START[(end - start) * 128 + c];
     if (candidates !== undefined) {
-      for (let k = 0; k < candidates.length; k++) if (body.startsWith(candidates[k]!, start)) return candidates[k]!;
+      for (let k = 0; k < candidates.length; k++) if (restMatches(body, start, candidates[k]!)) return candidates[k]!;
     }
   }
   return null;
+}
+
+/**
+ * Whether `word` is written at `start` of `body`, its length and first character known to match:
+ * compared in place, which for words this short costs less than a call of `startsWith` (the lexer
+ * asks for every word of a note: 0.2 of 2.9 ms on generateNote(2000)).
+ */
+function restMatches(body: string, start: number, word: string): boolean {
+  for (let k = 1; k < word.length; k++) if (body.charCodeAt(start + k) !== word.charCodeAt(k)) return false;
+  return true;
 }
 
 /** The sections of the format's words (VOCABULARY), looked up once each. */
