@@ -63,8 +63,7 @@ class GasWords {
    * as `6.7 kPa (50 mmHg)`, not `(50.3 mmHg)`).
    */
   measured(mmHg: number, resolution: number, t1 = NaN, t2 = NaN, t3 = NaN): string {
-    const off = (t: number) => (sideOf(mmHg, t, resolution) === 0 ? NaN : t);
-    return this.value(mmHg, off(t1), off(t2), off(t3), kpaDecimalsOf(resolution));
+    return this.value(mmHg, offThreshold(mmHg, t1, resolution), offThreshold(mmHg, t2, resolution), offThreshold(mmHg, t3, resolution), kpaDecimalsOf(resolution));
   }
 
   /**
@@ -92,6 +91,11 @@ class GasWords {
     if (!this.kpa) return `${rangeAgainst(low, high, 0, observed)} mmHg`;
     return `${rangeAgainst(kpaFromMmhg(low), kpaFromMmhg(high), KPA_DECIMALS, kpaFromMmhg(observed))} kPa`;
   }
+}
+
+/** A threshold a measured value is read against, or NaN (none) when the value is on it at its resolution. */
+function offThreshold(mmHg: number, t: number, resolution: number): number {
+  return sideOf(mmHg, t, resolution) === 0 ? NaN : t;
 }
 
 /** The two ways readings write gas pressures, shared by every gas. */
@@ -355,11 +359,24 @@ function berlinBandText(g: GasFacts): string {
   const band = g.band!;
   const pf = g.bandPf!.value;
   const peep = g.peep!;
-  const words = band === 'pf-200-to-300' ? '200–300' : band === 'pf-100-to-200' ? '100–200' : '≤ 100';
   // The bands are defined in mmHg: a kPa note gets the P/F in both units.
   const pfShown = `${g.onBoundary ?? formatAgainst(pf, 0, 100, 200, 300)} mmHg`;
   const carried = carriedWords(g.fio2, peep);
-  return `P/F ${g.gas.kpa ? `${kpaNumber(pf)} kPa (${pfShown})` : pfShown}${g.adjusted ? ' (adjusted for altitude)' : ''} with ${peep.name} ${formatAgainst(peep.value, 0, BERLIN_MIN_PEEP_CMH2O)} cmH2O${carried ? ` (${carried})` : ''}: consistent with the ${words} mmHg oxygenation band of the Berlin definition (the band called ${BERLIN_BAND_SEVERITY[band]} there) — an oxygenation band, not a diagnosis.`;
+  return `P/F ${g.gas.kpa ? `${kpaNumber(pf)} kPa (${pfShown})` : pfShown}${g.adjusted ? ' (adjusted for altitude)' : ''} with ${peep.name} ${formatAgainst(peep.value, 0, BERLIN_MIN_PEEP_CMH2O)} cmH2O${carried ? ` (${carried})` : ''}${BAND_WORDS[band]}`;
+}
+
+/**
+ * What the band reading says of each band, after its numbers: written once rather than pieced
+ * together for every gas (most gases on PEEP give one).
+ */
+const BAND_WORDS: Readonly<Record<BerlinOxygenationBand, string>> = {
+  'pf-200-to-300': bandWords('pf-200-to-300', '200–300'),
+  'pf-100-to-200': bandWords('pf-100-to-200', '100–200'),
+  'pf-100-or-below': bandWords('pf-100-or-below', '≤ 100'),
+};
+
+function bandWords(band: BerlinOxygenationBand, range: string): string {
+  return `: consistent with the ${range} mmHg oxygenation band of the Berlin definition (the band called ${BERLIN_BAND_SEVERITY[band]} there) — an oxygenation band, not a diagnosis.`;
 }
 
 function ventilationText(g: GasFacts): string {
@@ -526,7 +543,8 @@ const HCO3_DECIMALS = 1;
  * label is read from that beginning, up to the first semicolon: service/hints.ts acidBaseLabel).
  */
 function acidBaseText(cls: AcidBaseClassification, gas: GasWords, basis: AcidBaseBasis): string {
-  const parts: string[] = [];
+  // The text's parts, separated by `; ` (built as one string: no list to join).
+  let text: string;
   const { ph, paco2, hco3 } = basis;
   const gap = cls.anionGap;
   const gapKind = gap?.metabolicAcidosisKind;
@@ -541,22 +559,22 @@ function acidBaseText(cls: AcidBaseClassification, gas: GasWords, basis: AcidBas
   const ratioShown = gap?.deltaRatio !== null && gap?.deltaRatio !== undefined ? `delta ratio ${formatAgainst(gap.deltaRatio, 2, 0.4, 0.8, 2)}` : '';
   switch (cls.primary) {
     // With a disorder the anion gap shows, the balance is normal only by these three.
-    case 'normal': parts.push(`Consistent with normal acid–base balance${cls.additional.length > 0 ? ' by pH, PaCO2 and HCO3' : ''} (${numbers})`); break;
-    case 'undetermined': parts.push(`Acid–base reading undetermined: the pH does not follow the PaCO2 and HCO3 (${numbers})`); break;
+    case 'normal': text = `Consistent with normal acid–base balance${cls.additional.length > 0 ? ' by pH, PaCO2 and HCO3' : ''} (${numbers})`; break;
+    case 'undetermined': text = `Acid–base reading undetermined: the pH does not follow the PaCO2 and HCO3 (${numbers})`; break;
     case 'mixed-acidosis':
     case 'mixed-alkalosis': {
       const acid = cls.primary === 'mixed-acidosis';
       // Both components beyond their reference ranges, each named with the limit it is beyond.
       const co2Limit = acid ? limits.paco2[1] : limits.paco2[0];
       const hco3Limit = acid ? limits.hco3[0] : limits.hco3[1];
-      parts.push(`Consistent with a mixed metabolic and respiratory ${acid ? 'acidosis' : 'alkalosis'} (${phShown}; PaCO2 ${gas.measured(paco2, basis.co2Resolution, co2Limit)} ${acid ? 'above' : 'below'} ${gas.limit(co2Limit, paco2)} and HCO3 ${formatAgainst(hco3, HCO3_DECIMALS, hco3Limit)} mmol/L ${acid ? 'below' : 'above'} ${formatShort(hco3Limit)} mmol/L)`);
+      text = `Consistent with a mixed metabolic and respiratory ${acid ? 'acidosis' : 'alkalosis'} (${phShown}; PaCO2 ${gas.measured(paco2, basis.co2Resolution, co2Limit)} ${acid ? 'above' : 'below'} ${gas.limit(co2Limit, paco2)} and HCO3 ${formatAgainst(hco3, HCO3_DECIMALS, hco3Limit)} mmol/L ${acid ? 'below' : 'above'} ${formatShort(hco3Limit)} mmol/L)`;
       break;
     }
     default: {
       const chron = cls.respiratoryChronicity;
       const timing = chron === 'acute' ? 'acute ' : chron === 'chronic' ? 'chronic ' : '';
       const gapDetail = cls.primary === 'metabolic-acidosis' && gapKind ? `; ${[gapShown, gapKind === 'normal-anion-gap' ? '' : ratioShown].filter(Boolean).join(', ')}` : '';
-      parts.push(`Consistent with ${cls.fullyCompensated ? 'a fully compensated ' : ''}${timing}${DISORDER_WORDS[cls.primary]}${cls.primary === 'metabolic-acidosis' ? gapWords : ''} (${numbers}${gapDetail})`);
+      text = `Consistent with ${cls.fullyCompensated ? 'a fully compensated ' : ''}${timing}${DISORDER_WORDS[cls.primary]}${cls.primary === 'metabolic-acidosis' ? gapWords : ''} (${numbers}${gapDetail})`;
     }
   }
   const exp = cls.expected;
@@ -566,9 +584,9 @@ function acidBaseText(cls: AcidBaseClassification, gas: GasWords, basis: AcidBas
     // The ends of a range are shown with the decimals that keep the observed value outside or inside it, as it is.
     const o = exp.observed;
     const range = gas.range(exp.range.low, exp.range.high, o);
-    if (cls.compensation === 'appropriate') parts[0] += `, with the expected respiratory response (PaCO2 within the expected ${range})`;
-    else if (cls.additional.includes('respiratory-acidosis')) { parts.push(`PaCO2 ${gas.measured(o, basis.co2Resolution, exp.range.high)} is above the expected ${range}: consistent with an added respiratory acidosis`); named = 'respiratory-acidosis'; }
-    else if (cls.additional.includes('respiratory-alkalosis')) { parts.push(`PaCO2 ${gas.measured(o, basis.co2Resolution, exp.range.low)} is below the expected ${range}: consistent with an added respiratory alkalosis`); named = 'respiratory-alkalosis'; }
+    if (cls.compensation === 'appropriate') text += `, with the expected respiratory response (PaCO2 within the expected ${range})`;
+    else if (cls.additional.includes('respiratory-acidosis')) { text += `; PaCO2 ${gas.measured(o, basis.co2Resolution, exp.range.high)} is above the expected ${range}: consistent with an added respiratory acidosis`; named = 'respiratory-acidosis'; }
+    else if (cls.additional.includes('respiratory-alkalosis')) { text += `; PaCO2 ${gas.measured(o, basis.co2Resolution, exp.range.low)} is below the expected ${range}: consistent with an added respiratory alkalosis`; named = 'respiratory-alkalosis'; }
   } else if (exp?.kind === 'metabolic-response') {
     const o = exp.observed;
     const acuteRange = `${rangeAgainst(exp.acute.low, exp.acute.high, 0, o)} mmol/L`;
@@ -577,12 +595,12 @@ function acidBaseText(cls: AcidBaseClassification, gas: GasWords, basis: AcidBas
     const chron = cls.respiratoryChronicity;
     if (cls.compensation !== 'appropriate' && cls.compensation !== 'not-applicable') {
       const added = cls.additional.find((d) => d === 'metabolic-acidosis' || d === 'metabolic-alkalosis');
-      parts.push(`${hco3Against} is outside the expected ${acuteRange} (acute) and ${chronicRange} (chronic): consistent with an added ${added ? DISORDER_WORDS[added] : 'metabolic disorder'}`);
+      text += `; ${hco3Against} is outside the expected ${acuteRange} (acute) and ${chronicRange} (chronic): consistent with an added ${added ? DISORDER_WORDS[added] : 'metabolic disorder'}`;
       if (added) named = added;
-    } else if (chron === 'acute') parts[0] += `, with HCO3 within the ${acuteRange} expected if acute (${chronicRange} if chronic)`;
-    else if (chron === 'chronic') parts[0] += `, with HCO3 within the ${chronicRange} expected if chronic (${acuteRange} if acute)`;
-    else if (chron === 'intermediate') parts.push(`${hco3Against} is between the acute and chronic ranges (${acuteRange} if acute, ${chronicRange} if chronic): evolving, or acute on chronic`);
-    else if (chron === 'acute-or-chronic') parts.push(`${hco3Against} is within both the acute (${acuteRange}) and the chronic (${chronicRange}) range, which overlap here, so acute cannot be told from chronic`);
+    } else if (chron === 'acute') text += `, with HCO3 within the ${acuteRange} expected if acute (${chronicRange} if chronic)`;
+    else if (chron === 'chronic') text += `, with HCO3 within the ${chronicRange} expected if chronic (${acuteRange} if acute)`;
+    else if (chron === 'intermediate') text += `; ${hco3Against} is between the acute and chronic ranges (${acuteRange} if acute, ${chronicRange} if chronic): evolving, or acute on chronic`;
+    else if (chron === 'acute-or-chronic') text += `; ${hco3Against} is within both the acute (${acuteRange}) and the chronic (${chronicRange}) range, which overlap here, so acute cannot be told from chronic`;
   }
   // Most gases add no disorder: no list is made then.
   const extra: readonly AcidBaseDisorder[] = cls.additional.length === 0 ? NONE : cls.additional.filter((d) => d !== cls.primary && d !== named);
@@ -593,7 +611,7 @@ function acidBaseText(cls: AcidBaseClassification, gas: GasWords, basis: AcidBas
     if (extra.includes('metabolic-alkalosis')) {
       why.push(gap?.deltaRatio === null || gap?.deltaRatio === undefined ? `${extra.includes('metabolic-acidosis') ? 'with ' : `${gapShown} with `}an HCO3 that has not fallen below ${HCO3_CENTRE_MMOL_L} mmol/L` : `${ratioShown}, above 2`);
     }
-    parts.push(`also consistent with an added ${extra.map((d) => DISORDER_WORDS[d]).join(' and ')}${why.length > 0 ? ` (${why.join(', ')})` : ''}`);
+    text += `; also consistent with an added ${extra.map((d) => DISORDER_WORDS[d]).join(' and ')}${why.length > 0 ? ` (${why.join(', ')})` : ''}`;
   }
-  return `${parts.join('; ')}.`;
+  return `${text}.`;
 }
