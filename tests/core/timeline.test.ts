@@ -222,6 +222,29 @@ describe('values in force (read from the held settings and the values stated her
   });
 });
 
+describe('measurements read one field at a time', () => {
+  it('finds each field measured here, low and high in the registry, the last of a field winning, and none at the next timepoint', () => {
+    const tps = timeline('@ 08:00\nvitals hr 80, etco2 30\nabg 7.30/50/60\nlabs glucose 6, na 140\nvent plateau 20\nabg po2 64\n@ 09:00\nvitals rr 12').timepoints;
+    const here = { hr: 80, etco2: 30, ph: 7.3, paco2: 50, pao2: 64, glucose: 6, na: 140, plateau: 20 };
+    for (const [id, number] of Object.entries(here)) {
+      expect(value(tps[0], id), id).toBe(number);
+      expect(tps[0]!.values.numberOf(id), id).toBe(number);
+      expect(tps[0]!.values.originOf(id), id).toBe('here');
+      expect(tps[0]!.values.has(id), id).toBe(true);
+      expect(tps[1]!.values.get(id), id).toBeUndefined();
+      expect(tps[1]!.values.originOf(id), id).toBeNull();
+    }
+    expect(value(tps[1], 'rr')).toBe(12);
+    // Every other field of the registry: nothing in force at either timepoint.
+    for (const f of FIELDS) {
+      if (f.id in here || f.id === 'rr') continue;
+      expect(tps[0]!.values.has(f.id), f.id).toBe(false);
+      expect(tps[0]!.values.numberOf(f.id), f.id).toBeNull();
+    }
+    expect(tps[0]!.values.has('no_such_field')).toBe(false);
+  });
+});
+
 describe('values stated twice at one timepoint (PN206)', () => {
   const pn206 = (text: string) => checkNote(text).findings.filter((f) => f.code === 'PN206');
 

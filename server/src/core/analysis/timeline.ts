@@ -678,6 +678,13 @@ function sameHeld(a: Held, b: Held): boolean {
  */
 class ValuesAt implements ValuesInForce {
   private full: Map<string, InputValue> | null = null;
+  /**
+   * The fields measured here as bits (see FIELD_INDEX), made on the first read; -1 until then.
+   * The derivation and the checks ask a timepoint for a field some twenty times, and half the
+   * fields asked are not measured there: the bits answer those without a walk of the stated values.
+   */
+  private measuredLow = -1;
+  private measuredHigh = 0;
 
   constructor(
     private readonly index: number,
@@ -710,12 +717,31 @@ class ValuesAt implements ValuesInForce {
 
   /** The measurement or reading of a field stated here (the last of them wins). */
   private measuredHere(id: string): StatedValue | undefined {
+    if (this.measuredLow < 0) this.markMeasured();
+    const index = FIELD_INDEX.get(id);
+    // A stated value's field is always one of the registry's.
+    if (index === undefined) return undefined;
+    const bits = index < MASK_BITS ? this.measuredLow : this.measuredHigh;
+    if ((bits & (1 << (index % MASK_BITS))) === 0) return undefined;
     const stated = this.stated;
     for (let i = stated.length - 1; i >= 0; i--) {
       const s = stated[i]!;
       if (s.fieldId === id && isHereOnly(s)) return s;
     }
     return undefined;
+  }
+
+  private markMeasured(): void {
+    let low = 0;
+    let high = 0;
+    for (const s of this.stated) {
+      if (!isHereOnly(s)) continue;
+      const index = FIELD_INDEX.get(s.fieldId)!;
+      if (index < MASK_BITS) low |= 1 << index;
+      else high |= 1 << (index - MASK_BITS);
+    }
+    this.measuredLow = low;
+    this.measuredHigh = high;
   }
 
   /** A field is held in one map only (an oxygen line empties the ventilator's and back). */
@@ -745,6 +771,11 @@ class ValuesAt implements ValuesInForce {
     for (const [k, v] of this.all()) callback.call(thisArg, v, k, this);
   }
 }
+
+/** Each field's bit in a timepoint's bits of fields measured here: two words of 30 bits, small integers for V8. */
+const FIELD_INDEX: ReadonlyMap<string, number> = new Map(FIELDS.map((f, i) => [f.id, i]));
+const MASK_BITS = 30;
+if (FIELDS.length > 2 * MASK_BITS) throw new Error('timeline: too many fields for the bits of fields measured at a timepoint');
 
 const READING_FIELDS: ReadonlySet<string> = new Set(FIELDS.filter((f) => f.reading).map((f) => f.id));
 const MEASURE_SECTIONS: ReadonlySet<SectionId> = new Set(SECTIONS.filter((s) => s.kind === 'measure').map((s) => s.id));
