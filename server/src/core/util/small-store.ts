@@ -5,38 +5,48 @@
  * entries, and a Map grows through several tables on the way. Keys compare with `===`.
  */
 export class SmallStore<K, V> {
-  private readonly entries: (K | V)[] = [];
+  private readonly entries: (K | V | undefined)[] = [];
+  /** Entries in use, as a count of slots (`key, value` pairs take two): see `clear`. */
+  private used = 0;
 
   get(key: K): V | undefined {
     const e = this.entries;
-    for (let i = 0; i < e.length; i += 2) if (e[i] === key) return e[i + 1] as V;
+    for (let i = 0; i < this.used; i += 2) if (e[i] === key) return e[i + 1] as V;
     return undefined;
   }
 
   has(key: K): boolean {
     const e = this.entries;
-    for (let i = 0; i < e.length; i += 2) if (e[i] === key) return true;
+    for (let i = 0; i < this.used; i += 2) if (e[i] === key) return true;
     return false;
   }
 
   set(key: K, value: V): void {
     const e = this.entries;
-    for (let i = 0; i < e.length; i += 2) {
+    const used = this.used;
+    for (let i = 0; i < used; i += 2) {
       if (e[i] === key) {
         e[i + 1] = value;
         return;
       }
     }
-    e.push(key, value);
+    if (used < e.length) {
+      e[used] = key;
+      e[used + 1] = value;
+    } else e.push(key, value);
+    this.used = used + 2;
   }
 
   get size(): number {
-    return this.entries.length / 2;
+    return this.used / 2;
   }
 
   clear(): void {
-    // Most stores are cleared while empty (a timepoint's shared values, where no check shared one).
-    if (this.entries.length !== 0) this.entries.length = 0;
+    // The array keeps its room: a store cleared at every timepoint (the values its checks share)
+    // would otherwise make a new backing store at each. The entries are let go of, not kept alive.
+    const e = this.entries;
+    for (let i = 0; i < this.used; i++) e[i] = undefined;
+    this.used = 0;
   }
 }
 
