@@ -475,6 +475,16 @@ describe('timepoints', () => {
     expect(timepoint('@ 09:00,').label).toBeNull();
   });
 
+  it('reads a day number written without a sign, and keeps the label as written', () => {
+    const read = (text: string) => { const node = timepoint(text); return [node.time?.day ?? null, node.time?.text ?? null, node.label?.text ?? null, node.label && [node.label.span.start, node.label.span.end], node.issues.map((i) => i.message)]; };
+    const noDay = ['After `day` write the day number, e.g. `@ day 2 08:00`.'];
+    expect(read('@ day 02  ward round, then x-ray')).toEqual([2, 'day 02', 'ward round, then x-ray', [10, 32], []]);
+    expect(read('@ day +2')).toEqual([null, null, null, null, noDay]);
+    expect(read('@ day -1')).toEqual([null, null, null, null, noDay]);
+    expect(read('@ day 2.5')).toEqual([null, null, null, null, noDay]);
+    expect(read('@ day 2x')).toEqual([null, null, null, null, noDay]);
+  });
+
   it('reads `@ HH:MM`, `@HH:MM`, `@ day N` and offsets', () => {
     expect(timepoint('@ 07:40').time).toMatchObject({ kind: 'clock', day: null, minutes: 460 });
     expect(timepoint('@07:40 x').time).toMatchObject({ kind: 'clock', minutes: 460 });

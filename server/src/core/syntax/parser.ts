@@ -415,9 +415,10 @@ function parseTimepoint(body: string, chunks: Word[], line: number, text: string
   } else if (c0.end - c0.start === 3 && lowerCase(c0.text) === 'day') {
     const c1 = chunks[at + 1];
     // The number is left in SCANNED (no object per timepoint): read before anything scans again.
-    const dayLength = c1 ? scanNumber(c1.text) : 0;
+    // Read in the line (see `scanWord`): the day's text is cut out only for a message.
+    const dayLength = c1 ? scanWord(c1) : 0;
     const day = compact(SCANNED.value);
-    if (!c1 || dayLength === 0 || dayLength !== c1.text.length || !Number.isInteger(day) || day < 0 || c1.text.startsWith('-') || c1.text.startsWith('+')) {
+    if (!c1 || dayLength === 0 || dayLength !== c1.end - c1.start || !Number.isInteger(day) || day < 0 || isAsciiSign(body.charCodeAt(c1.start))) {
       issues.push({ check: 'bad-time', span: c1 ? c1.span : c0.span, message: 'After `day` write the day number, e.g. `@ day 2 08:00`.', fixes: [] });
       used = c1 ? 2 : 1;
     } else if (day > MAX_DAY) {
@@ -475,7 +476,8 @@ function parseTimepoint(body: string, chunks: Word[], line: number, text: string
   }
   const l0 = chunks[at + used];
   const labelEnd = l0 ? proseEnd(body) : 0;
-  const label: Token | null = l0 ? token(body.slice(l0.start, labelEnd), l0.start, labelEnd) : null;
+  // Cut from the line when read (one object rather than a token and its text): the timeline reads it once.
+  const label: Token | null = l0 ? new CutToken(body, l0.start, labelEnd) : null;
   return { kind: 'timepoint', line, text, comment, marker, time, label, issues: keptIssues(issues) };
 }
 
@@ -547,6 +549,11 @@ class TimeNode extends Cut implements TimeSpec {
   ) {
     super(source, start, end);
   }
+}
+
+/** `+` or `-` (a day number is written without one; `−` is left to the number's value). */
+function isAsciiSign(c: number): boolean {
+  return c === 0x2b || c === 0x2d;
 }
 
 /** `0800` → `08:00`, `745` → `07:45`: three or four digits that make a time of day; null otherwise. */
