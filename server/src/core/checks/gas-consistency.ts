@@ -21,20 +21,18 @@ export const gasInconsistent = defineCheck({
     const tp = ctx.timepoint;
     // Only an HCO3 stated here is checked (asked without building the value).
     if (tp.values.originOf('hco3') !== 'here') return;
-    {
-      const ph = tp.values.get('ph');
-      const paco2 = tp.values.get('paco2');
-      const hco3 = tp.values.get('hco3');
-      if (!ph || !paco2 || !hco3) return;
-      if (hco3.origin.kind !== 'here') return;
-      const all = [ph, paco2, hco3];
-      if (all.some((v) => !v.stated.usable || v.stated.value === null)) return;
-      const result = acidBaseConsistency(ph.stated.value!, paco2.stated.value!, hco3.stated.value!);
-      if (!result || result.consistent) return;
-      ctx.report({
-        range: toRange(hco3.stated.line, hco3.stated.item.value?.span ?? hco3.stated.item.span),
-        message: `HCO3 ${formatNumber(hco3.stated.value!, 1)} mmol/L does not fit pH ${formatNumber(ph.stated.value!, 2)} and PaCO2 ${gasPressureText(paco2.stated.value!, 0, showsKpa(tp))}, which give ${formatNumber(result.calculatedHco3MmolL, 1)} mmol/L: a transcription error, or values from different samples?`,
-      });
-    }
+    // The usable numbers in force, read without building the values; the HCO3's value is built
+    // only for a finding's range.
+    const ph = tp.values.numberOf('ph');
+    const paco2 = tp.values.numberOf('paco2');
+    const hco3 = tp.values.numberOf('hco3');
+    if (ph === null || paco2 === null || hco3 === null) return;
+    const result = acidBaseConsistency(ph, paco2, hco3);
+    if (!result || result.consistent) return;
+    const stated = tp.values.get('hco3')!.stated;
+    ctx.report({
+      range: toRange(stated.line, stated.item.value?.span ?? stated.item.span),
+      message: `HCO3 ${formatNumber(hco3, 1)} mmol/L does not fit pH ${formatNumber(ph, 2)} and PaCO2 ${gasPressureText(paco2, 0, showsKpa(tp))}, which give ${formatNumber(result.calculatedHco3MmolL, 1)} mmol/L: a transcription error, or values from different samples?`,
+    });
   },
 });

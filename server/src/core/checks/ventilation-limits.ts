@@ -17,6 +17,10 @@ function derivedAbove(ctx: TimepointContext, id: string, limit: number, anchorFi
   ctx.report({ range: toRange(anchor.stated.line, anchor.stated.item.span), message: message(d.value) });
 }
 
+// The messages are made once, not as a closure per timepoint (a big note has thousands).
+const tidalVolumeMessage = (v: number): string => `Tidal volume is ${formatAgainst(v, 1, VT_PER_KG_LIMIT)} mL/kg predicted body weight, above the ${VT_PER_KG_LIMIT} mL/kg top of the lung-protective range.`;
+const drivingPressureMessage = (v: number): string => `Driving pressure is ${formatAgainst(v, 0, DRIVING_PRESSURE_LIMIT_CMH2O)} cmH2O (plateau − PEEP), above ${DRIVING_PRESSURE_LIMIT_CMH2O} cmH2O.`;
+
 export const tidalVolumeHigh = defineCheck({
   code: 'PN403',
   alias: 'tidal-volume-high',
@@ -30,7 +34,7 @@ export const tidalVolumeHigh = defineCheck({
   },
   source: SOURCES['ardsnet-2000'],
   runTimepoint(ctx) {
-    derivedAbove(ctx, 'vt_per_kg_pbw', VT_PER_KG_LIMIT, 'vt', (v) => `Tidal volume is ${formatAgainst(v, 1, VT_PER_KG_LIMIT)} mL/kg predicted body weight, above the ${VT_PER_KG_LIMIT} mL/kg top of the lung-protective range.`);
+    derivedAbove(ctx, 'vt_per_kg_pbw', VT_PER_KG_LIMIT, 'vt', tidalVolumeMessage);
   },
 });
 
@@ -67,6 +71,6 @@ export const drivingPressureHigh = defineCheck({
   },
   source: `${SOURCES['amato-2015']} The 15 cmH2O flag is common practice, no source.`,
   runTimepoint(ctx) {
-    derivedAbove(ctx, 'driving_pressure', DRIVING_PRESSURE_LIMIT_CMH2O, 'plateau', (v) => `Driving pressure is ${formatAgainst(v, 0, DRIVING_PRESSURE_LIMIT_CMH2O)} cmH2O (plateau − PEEP), above ${DRIVING_PRESSURE_LIMIT_CMH2O} cmH2O.`);
+    derivedAbove(ctx, 'driving_pressure', DRIVING_PRESSURE_LIMIT_CMH2O, 'plateau', drivingPressureMessage);
   },
 });
