@@ -33,6 +33,16 @@ describe('formatNumber', () => {
     }
   });
 
+  it('rounds a fraction to a whole number as toFixed does, halves and near-halves included', () => {
+    const cases = [0.5, 1.5, 2.5, 99.5, 0.49999999999999994, 0.5000000000000001, 123.49999999999999, 199.99999999999997, 4503599627370495.5, 1e-300, 5e-324, -0.5, -1.5, -2.5, -0.4, -199.6];
+    for (const v of cases) expect(formatNumber(v, 0), String(v)).toBe(byToFixed(v, 0));
+    const next = rng(7);
+    for (let i = 0; i < 20000; i++) {
+      const v = (Math.floor(next() * 1e6) + (next() < 0.5 ? 0.5 : next())) / 10 ** Math.floor(next() * 4);
+      expect(formatNumber(v, 0)).toBe(byToFixed(v, 0));
+    }
+  });
+
   it('writes what is not a finite number as a dash', () => {
     expect(formatNumber(NaN, 0)).toBe('—');
     expect(formatNumber(Infinity, 2)).toBe('—');

@@ -5,6 +5,9 @@ export function formatNumber(value: number, decimals: number): string {
   // A whole number (most values a note states: hr 84, peep 10) is written without toFixed, which
   // is the dearest step of formatting; the text is the same (String(-0) is '0', as wanted).
   if (Number.isInteger(value) && value < 1e21 && value > -1e21 && Number.isInteger(d)) return d === 0 ? String(value) : String(value) + ZEROS[d]!;
+  // With no decimals, a positive number is rounded as toFixed rounds it (to the nearest whole
+  // number, halves up) at a fraction of the cost: a P/F or a gradient shown whole.
+  if (d === 0 && value > 0 && value < 1e21) return String(Math.round(value));
   const fixed = value.toFixed(d);
   // A negative number that rounds to zero prints as 0, not -0.
   return fixed.charCodeAt(0) === 45 && Number(fixed) === 0 ? fixed.slice(1) : fixed;
