@@ -18,16 +18,17 @@ const SATURATIONS = new Set(['spo2', 'sao2', 'svo2']);
 
 /**
  * Runs a per-value test over the header (note scope) and over each timepoint's stated values
- * (timepoint scope, with the barometric pressure in force there).
+ * (timepoint scope, with the barometric pressure in force there when the test reads it).
  */
-function valueCheck(test: (ctx: CheckContext, stated: StatedValue, barometricMmhg: number | null) => void): Pick<CheckDef, 'run' | 'runTimepoint'> {
+function valueCheck(test: (ctx: CheckContext, stated: StatedValue, barometricMmhg: number | null) => void, readsPressure = true): Pick<CheckDef, 'run' | 'runTimepoint'> {
   return {
     run(ctx) {
       for (const stated of ctx.analysis.timeline.header) test(ctx, stated, null);
     },
     runTimepoint(ctx) {
-      // Read once: a number read from an object for each call would be boxed for each call.
-      const barometricMmhg = ctx.timepoint.barometricMmhg;
+      // Read once: a number read from an object for each call would be boxed for each call. A
+      // test that does not read it is passed null: no boxed number per check and timepoint.
+      const barometricMmhg = readsPressure ? ctx.timepoint.barometricMmhg : null;
       for (const stated of ctx.timepoint.stated) test(ctx, stated, barometricMmhg);
     },
   };
@@ -163,7 +164,7 @@ export const saturationAbove100 = defineCheck({
       range: toRange(stated.line, stated.item.value?.span ?? stated.item.span),
       message: `${fieldById(stated.fieldId)?.label ?? stated.fieldId} ${stated.item.value?.text ?? ''} % is above 100 %, which is impossible.`,
     });
-  }),
+  }, false),
 });
 
 export const fio2OutOfRange = defineCheck({
@@ -185,7 +186,7 @@ export const fio2OutOfRange = defineCheck({
       range: toRange(stated.line, stated.item.value?.span ?? stated.item.span),
       message: `${fio2AsRead(stated)} is ${fio2Limit(stated)}; it is not used in calculations.`,
     });
-  }),
+  }, false),
 });
 
 /**
