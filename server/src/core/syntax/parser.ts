@@ -955,14 +955,16 @@ class Item implements ItemNode, Span {
   private readonly name: string;
   /** What implied the key (an index into IMPLIED, 0: written), plus DECIMAL_COMMA. */
   private readonly flags: number;
-  /** A pair or word value; null for a number value (kept flat below) or no value. */
-  private readonly other: PairValue | WordValue | null;
   /**
-   * The line the number is on, its value (null: no number value) and where it is. `num` may hold
-   * null, so a whole number is kept in the item itself rather than in a box of its own (as a field
-   * that only ever holds numbers would keep it).
+   * A pair or word value, or for a number value (kept flat below) the line the number is on (a
+   * string: see `other`, `source`); null for no value. One field for the two, as an item has only
+   * one of them: a field less on each of the tens of thousands of items a big note keeps.
    */
-  private readonly source: string;
+  private readonly ref: PairValue | WordValue | string | null;
+  /**
+   * The number value (null: none) and where it is. `num` may hold null, so a whole number is kept
+   * in the item itself rather than in a box of its own (as a field that only ever holds numbers would keep it).
+   */
   private readonly num: number | null;
   private readonly numEnd: number;
   readonly unitText: string | null;
@@ -983,12 +985,21 @@ class Item implements ItemNode, Span {
   ) {
     this.name = implied === null && keyText !== null ? keyText : keyName;
     this.flags = IMPLIED.indexOf(implied) | (numComma ? DECIMAL_COMMA : 0);
-    this.other = other;
-    this.source = source;
+    this.ref = num === null ? other : source;
     this.num = num === null ? null : compact(num);
     this.numEnd = numEnd;
     this.unitText = unit?.text ?? null;
     this.unitStart = unit?.start ?? 0;
+  }
+
+  /** A pair or word value; null for a number value or none. */
+  private get other(): PairValue | WordValue | null {
+    return typeof this.ref === 'string' ? null : this.ref;
+  }
+
+  /** The line a number value is on. */
+  private get source(): string {
+    return typeof this.ref === 'string' ? this.ref : '';
   }
 
   /**
