@@ -558,10 +558,14 @@ function primaryDisorders(primary: PrimaryAcidBaseFinding): readonly AcidBaseDis
   }
 }
 
-/** A list of one's own to add to (`slice` takes a slow path on the shared, frozen lists). */
+/**
+ * A list of one's own to add to (`slice` takes a slow path on the shared, frozen lists). Made at
+ * its length: a list grown by push from empty takes room for 17 entries, and most hold one.
+ */
 function copyOf(list: readonly AcidBaseDisorder[]): AcidBaseDisorder[] {
-  const copy: AcidBaseDisorder[] = [];
-  for (let i = 0; i < list.length; i++) copy.push(list[i]!);
+  if (list.length === 0) return [];
+  const copy = new Array<AcidBaseDisorder>(list.length);
+  for (let i = 0; i < list.length; i++) copy[i] = list[i]!;
   return copy;
 }
 
