@@ -938,6 +938,8 @@ const IMPLIED: readonly ItemNode['implied'][] = [null, 'shorthand', 'device', 'd
 const IMPLIED_MASK = 3;
 const SHORTHAND = 1;
 const DECIMAL_COMMA = 4;
+/** An item's flags take values below this; where its number ends is kept above them (see `Item.packed`). */
+const FLAG_VALUES = 8;
 
 /**
  * An item: `key value [unit]`, or a value whose key is implied by its place (a shorthand gas part,
@@ -953,8 +955,13 @@ const DECIMAL_COMMA = 4;
 class Item implements ItemNode, Span {
   /** The key as written, or for an implied key the key it stands for (see `flags`). */
   private readonly name: string;
-  /** What implied the key (an index into IMPLIED, 0: written), plus DECIMAL_COMMA. */
-  private readonly flags: number;
+  /**
+   * The item's flags (what implied the key, an index into IMPLIED, 0: written; plus DECIMAL_COMMA),
+   * plus FLAG_VALUES times where a number value ends (0 for none): one field for the two, a field
+   * less on each item. Read by arithmetic, not bit operations, so a line longer than 2^28 (where the
+   * sum leaves the 31-bit range) still reads right.
+   */
+  private readonly packed: number;
   /**
    * A pair or word value, or for a number value (kept flat below) the line the number is on (a
    * string: see `other`, `source`); null for no value. One field for the two, as an item has only
@@ -966,7 +973,6 @@ class Item implements ItemNode, Span {
    * in the item itself rather than in a box of its own (as a field that only ever holds numbers would keep it).
    */
   private readonly num: number | null;
-  private readonly numEnd: number;
   readonly unitText: string | null;
   private readonly unitStart: number;
 
@@ -984,12 +990,20 @@ class Item implements ItemNode, Span {
     readonly start: number,
   ) {
     this.name = implied === null && keyText !== null ? keyText : keyName;
-    this.flags = IMPLIED.indexOf(implied) | (numComma ? DECIMAL_COMMA : 0);
+    this.packed = numEnd * FLAG_VALUES + (IMPLIED.indexOf(implied) | (numComma ? DECIMAL_COMMA : 0));
     this.ref = num === null ? other : source;
     this.num = num === null ? null : compact(num);
-    this.numEnd = numEnd;
     this.unitText = unit?.text ?? null;
     this.unitStart = unit?.start ?? 0;
+  }
+
+  private get flags(): number {
+    return this.packed % FLAG_VALUES;
+  }
+
+  /** Where a number value ends. */
+  private get numEnd(): number {
+    return Math.floor(this.packed / FLAG_VALUES);
   }
 
   /** A pair or word value; null for a number value or none. */
