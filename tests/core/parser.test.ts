@@ -483,6 +483,8 @@ describe('timepoints', () => {
     expect(read('@ day -1')).toEqual([null, null, null, null, noDay]);
     expect(read('@ day 2.5')).toEqual([null, null, null, null, noDay]);
     expect(read('@ day 2x')).toEqual([null, null, null, null, noDay]);
+    // Whole numbers not written as integers are not day numbers either (the spec: `day` integer).
+    for (const day of ['2.0', '2,0', '.0', '\u22120', '1e1']) expect(read(`@ day ${day}`), day).toEqual([null, null, null, null, noDay]);
   });
 
   it('reads `@ HH:MM`, `@HH:MM`, `@ day N` and offsets', () => {

@@ -418,7 +418,7 @@ function parseTimepoint(body: string, chunks: Word[], line: number, text: string
     // Read in the line (see `scanWord`): the day's text is cut out only for a message.
     const dayLength = c1 ? scanWord(c1) : 0;
     const day = compact(SCANNED.value);
-    if (!c1 || dayLength === 0 || dayLength !== c1.end - c1.start || !Number.isInteger(day) || day < 0 || isAsciiSign(body.charCodeAt(c1.start))) {
+    if (!c1 || dayLength === 0 || dayLength !== c1.end - c1.start || !Number.isInteger(day) || day < 0 || !asciiDigitsOnly(body, c1.start, c1.end)) {
       issues.push({ check: 'bad-time', span: c1 ? c1.span : c0.span, message: 'After `day` write the day number, e.g. `@ day 2 08:00`.', fixes: [] });
       used = c1 ? 2 : 1;
     } else if (day > MAX_DAY) {
@@ -552,8 +552,17 @@ class TimeNode extends Cut implements TimeSpec {
 }
 
 /** `+` or `-` (a day number is written without one; `−` is left to the number's value). */
-function isAsciiSign(c: number): boolean {
-  return c === 0x2b || c === 0x2d;
+/**
+ * Whether `[start, end)` of the text is ASCII digits only: a day number is an integer as written
+ * (`day 2`, `day 02`), not a number that happens to be whole (`day 2.0`, `day 2,0`, `day .0`, or
+ * a sign, ASCII or U+2212).
+ */
+function asciiDigitsOnly(text: string, start: number, end: number): boolean {
+  for (let i = start; i < end; i++) {
+    const c = text.charCodeAt(i);
+    if (c < 0x30 || c > 0x39) return false;
+  }
+  return end > start;
 }
 
 /** `0800` → `08:00`, `745` → `07:45`: three or four digits that make a time of day; null otherwise. */
