@@ -394,7 +394,7 @@ function processBlock(lines: readonly LineNode[], start: number, end: number, in
   let tpLine: number | null = null;
   let tpLabel: string | null = null;
   let tpStart = 0;
-  let tpTime: TimepointTime = NO_TIME;
+  let tpTime: TimepointTime = START_TIME;
   if (first?.kind === 'timepoint') {
     const time = timeOf(first, timeIn, index === 0);
     if (time.minutes !== null || time.day !== null) timeOut = time;
@@ -445,8 +445,6 @@ function processBlock(lines: readonly LineNode[], start: number, end: number, in
 /** Scratch space of `processBlock`: the values stated at the block's timepoint, and its read issues. */
 const STATED: (StatedValue | undefined)[] = [];
 const READ_ISSUES: ReadIssue[] = [];
-/** What a timepoint without a time has (shared: times are never changed). */
-const NO_TIME: TimepointTime = Object.freeze({ day: null, minutes: null });
 
 function firstContentLine(tree: NoteTree): number {
   const first = tree.lines.find((l) => l.kind === 'section' || l.kind === 'unknown');
