@@ -551,7 +551,6 @@ class TimeNode extends Cut implements TimeSpec {
   }
 }
 
-/** `+` or `-` (a day number is written without one; `−` is left to the number's value). */
 /**
  * Whether `[start, end)` of the text is ASCII digits only: a day number is an integer as written
  * (`day 2`, `day 02`), not a number that happens to be whole (`day 2.0`, `day 2,0`, `day .0`, or
