@@ -214,10 +214,10 @@ function hasShape(c: Candidate, shape: readonly number[]): boolean {
   return ls.length === shape.length && ls.every((l, k) => l === shape[k]);
 }
 
+/** What candidate `c` is, if anything; it holds `MIN_DIGITS` digits or more (`readCandidate` passes no other). */
 function classify(text: string, c: Candidate): PrivacyMatch | null {
   const all = c.groups.map((g) => g.digits).join('');
   const n = all.length;
-  if (n < MIN_DIGITS) return null;
   const paren = c.groups.some((g) => g.paren);
   // A LOINC-like code (`2744-1`, `30525-0`: digits, a hyphen, one check digit) is no identifier.
   if (!c.plus && !paren && c.groups.length === 2 && c.seps[0] === '-' && c.groups[1]!.digits.length === 1 && c.groups[0]!.digits.length <= 5) return null;
