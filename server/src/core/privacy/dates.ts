@@ -28,6 +28,9 @@ const MONTH_MAX_LENGTH = Math.max(...[...MONTH_INDEX.keys()].map((name) => name.
 /** Full month names that are also ordinary words: they count only when capitalised. */
 const AMBIGUOUS_FULL = new Set(['may', 'march', 'august']);
 
+/** The full month names that count in lower case (`june 4`): scan.ts lets a text with one through its quick test. */
+export const LOWER_CASE_MONTHS: readonly string[] = MONTHS.map((names) => names[0]!).filter((name) => !AMBIGUOUS_FULL.has(name));
+
 const BIRTH_FILLERS = new Set(['on', 'in', 'is', 'was', 'the', 'at']);
 
 /**

@@ -67,14 +67,18 @@ function isDigits(run: Run | undefined, length: number): boolean {
   return run !== undefined && run.kind === 'digits' && run.text.length === length;
 }
 
+/** Postcode cues of two words (`post code`), looked for first, and of one word (`postcode`). */
+const CUE_PHRASES: readonly (readonly string[])[] = [['post', 'code'], ['postal', 'code'], ['zip', 'code']];
+const CUE_WORDS: ReadonlySet<string> = new Set(['postcode', 'zip', 'zipcode', 'address', 'addr']);
+
+/** The first word of each postcode cue: scan.ts lets a text in lower case with one through its quick test. */
+export const POSTCODE_CUE_FIRST_WORDS: readonly string[] = [...CUE_PHRASES.map((phrase) => phrase[0]!), ...CUE_WORDS];
+
 function isPostcodeCue(text: string, start: number): string | null {
   const words = wordsBefore(text, start, 3);
-  if (endsWithPhrase(words, ['post', 'code'])) return 'post code';
-  if (endsWithPhrase(words, ['postal', 'code'])) return 'postal code';
-  if (endsWithPhrase(words, ['zip', 'code'])) return 'zip code';
+  for (const phrase of CUE_PHRASES) if (endsWithPhrase(words, phrase)) return phrase.join(' ');
   const last = words[words.length - 1];
-  if (last === 'postcode' || last === 'zip' || last === 'zipcode' || last === 'address' || last === 'addr') return last;
-  return null;
+  return last !== undefined && CUE_WORDS.has(last) ? last : null;
 }
 
 /** A run stands alone: not glued to letters, digits or a decimal point on either side. */

@@ -3,11 +3,11 @@
  * sorted by position. Each detector family reads the text on its own; where two matches
  * overlap, the longer one wins, then the more specific kind (`KIND_PRIORITY`).
  */
-import { findDates } from './dates';
+import { findDates, LOWER_CASE_MONTHS } from './dates';
 import { findEmails } from './emails';
 import { findNames } from './names';
 import { findNumberIdentifiers } from './numbers';
-import { findPostalCodes } from './postal-codes';
+import { findPostalCodes, POSTCODE_CUE_FIRST_WORDS } from './postal-codes';
 import { KIND_PRIORITY, type PrivacyMatch } from './types';
 import { isAsciiLowerAt, runsOf } from './text';
 import { NONE } from '../util/lists';
@@ -72,13 +72,10 @@ export function scanPart(source: string, from: number, to: number): readonly Pri
 
 /**
  * The words in lower case that let a text with one to three digits and no capital through: the
- * full month names that count in lower case (see dates.ts: `june 4`) and the words of the
- * postcode cues (see postal-codes.ts: `postcode m1 1ae`). Each must stand as a word of its own.
+ * full month names that count in lower case (dates.ts: `june 4`) and the first word of each
+ * postcode cue (postal-codes.ts: `postcode m1 1ae`). Each must stand as a word of its own.
  */
-const LOWER_CASE_CUE_WORDS: ReadonlySet<string> = new Set([
-  'january', 'february', 'april', 'june', 'july', 'september', 'october', 'november', 'december',
-  'post', 'postal', 'postcode', 'zip', 'zipcode', 'address', 'addr',
-]);
+const LOWER_CASE_CUE_WORDS: ReadonlySet<string> = new Set([...LOWER_CASE_MONTHS, ...POSTCODE_CUE_FIRST_WORDS]);
 const CUE_WORD_INITIALS = new Set([...LOWER_CASE_CUE_WORDS].map((word) => word.charCodeAt(0)));
 const CUE_WORD_MIN_LENGTH = Math.min(...[...LOWER_CASE_CUE_WORDS].map((word) => word.length));
 const CUE_WORD_MAX_LENGTH = Math.max(...[...LOWER_CASE_CUE_WORDS].map((word) => word.length));
