@@ -767,7 +767,6 @@ function readSlashGroup(chunk: Word, source: string): PairNode | null {
   if (!hasSlash(chunk)) return null;
   const text = chunk.text;
   let slash = text.indexOf('/');
-  if (slash < 0) return null;
   // Numbers separated by single slashes, read in place (no split of the chunk).
   const packed = GROUP_NUMBERS;
   let count = 0;
