@@ -9,6 +9,7 @@ import { checkNote, type NoteResult } from '../../server/src/core/check-note';
 import { within } from '../../server/src/core/analysis/bounds';
 import { convert, unitById } from '../../server/src/core/fields/units';
 import { applyEdits, codeActions, type ActionInfo } from '../../server/src/core/service';
+import type { StatedValue } from '../../server/src/core/analysis/model';
 import type { Finding } from '../../server/src/core/types';
 import { noteAt } from './cursor';
 import { messyNote } from './note-arbitraries';
@@ -55,6 +56,7 @@ function problemsAfter(text: string, result: NoteResult, action: ActionInfo): st
     if (g.severity !== 'error') continue;
     if (result.findings.some((f) => f.severity === 'error' && f.code === g.code && f.range.start.line === g.range.start.line)) continue;
     if (revealed(g, again, result)) continue;
+    if (comparedWithValueLetRead(g, action, result, again)) continue;
     problems.push(`${action.title}: new error ${where(g)}: ${g.message}`);
   }
   return problems;
@@ -78,7 +80,7 @@ function revealed(g: Finding, again: NoteResult, before: NoteResult): boolean {
   const item = node.items.find((i) => on(i.value) || on(i.unit));
   if (!item?.value) return false;
   const token = on(item.value) ? item.value : item.unit!;
-  if (!beforeLine.includes(points(token.text))) return false;
+  if (!beforeLine.includes(points(token.text))) return convertedAsMeant(g.range.start.line, node.items.indexOf(item), again, before);
   if (g.code === 'PN301' && item.unit !== null && item.field && item.number !== null && !beforeLine.includes(points(node.text.slice(item.value.span.start, item.unit.span.end)))) {
     // The fix wrote the unit: its doing when another unit of the field would make the value possible.
     const field = item.field;
@@ -89,6 +91,60 @@ function revealed(g: Finding, again: NoteResult, before: NoteResult): boolean {
     return !(field.units ?? []).some(possibleIn);
   }
   return true;
+}
+
+/** What the analysis read from the item at `index` on `line`, if anything. */
+function statedAt(result: NoteResult, line: number, index: number): StatedValue | undefined {
+  const node = result.analysis.tree.lines[line];
+  const item = node?.kind === 'section' ? node.items[index] : undefined;
+  if (!item) return undefined;
+  for (const tp of result.analysis.timeline.timepoints) for (const s of tp.stated) if (s.line === line && s.item === item) return s;
+  return undefined;
+}
+
+/**
+ * The item holds a bare number the note wrote in another unit than the one it was read in (PN204),
+ * converted by the fix into the unit it is read in: the same quantity as the note meant it, to
+ * within the conversion's rounding (`po2 9.5`, meant in kPa, converted to `71` mmHg). An error
+ * about it is one the value as written has, as when the fix marks it `9.5 kPa` instead.
+ */
+function convertedAsMeant(line: number, index: number, again: NoteResult, before: NoteResult): boolean {
+  const was = statedAt(before, line, index);
+  const now = statedAt(again, line, index);
+  if (!was?.unitDoubt || was.item.number === null || now?.value == null || now.unit === null) return false;
+  const meant = convert(was.item.number, unitById(was.unitDoubt)!, unitById(now.unit)!);
+  return meant !== null && Math.abs(meant - now.value) <= 0.01 * Math.abs(meant);
+}
+
+/**
+ * An error between values as the note wrote them, which a fix revealed by letting one of them be
+ * read as written (or as meant, converted): `vent plateau 0.0, peep 1e3cmH2O` with the unit made
+ * `cmH2O` reads PEEP 1 cmH2O, above the plateau as written; `peak .5` started with the section
+ * `vent` it was missing reads a peak below the next line's plateau; `plateau 1..` with its full
+ * stop removed reads a plateau above the peak. The error sits at the timepoint of what the fix
+ * let be read or a later one, where the value read may be carried; an impossible value (PN301) is
+ * judged by `revealed`, which asks whether the fix chose its unit.
+ */
+function comparedWithValueLetRead(g: Finding, action: ActionInfo, before: NoteResult, again: NoteResult): boolean {
+  const points = (text: string) => text.replace(/(\d),(\d)/g, '$1.$2');
+  const usable = (s: StatedValue | undefined) => s?.usable === true && (s.value !== null || s.parts !== null || s.word !== null);
+  const readBefore = (line: number, fieldId: string) => before.analysis.timeline.timepoints.some((tp) => tp.stated.some((s) => s.line === line && s.fieldId === fieldId && usable(s)));
+  if (g.code === 'PN301') return false;
+  const letRead: number[] = [];
+  for (const line of new Set(action.edits.map((e) => e.range.start.line))) {
+    const node = again.analysis.tree.lines[line];
+    if (node?.kind !== 'section') continue;
+    const beforeLine = points(before.analysis.tree.lines[line]?.text ?? '');
+    node.items.forEach((item, index) => {
+      const now = statedAt(again, line, index);
+      if (!now || !usable(now) || !item.value || readBefore(line, now.fieldId)) return;
+      if (beforeLine.includes(points(item.value.text)) || convertedAsMeant(line, index, again, before)) letRead.push(line);
+    });
+  }
+  if (letRead.length === 0) return false;
+  const line = g.range.start.line;
+  const timepointOf = (l: number) => again.analysis.timeline.timepoints.findIndex((tp) => tp.startLine <= l && l <= tp.endLine);
+  return letRead.some((l) => timepointOf(l) <= timepointOf(line));
 }
 
 describe('quick fixes on the fixture notes and samples', () => {
@@ -143,5 +199,25 @@ describe('a fix that would make a value impossible', () => {
     expect(fTitles).toContain('Change to F');
     expect(fTitles).not.toContain('Change to C');
     expect(result.findings.map((x) => x.code)).toEqual(['PN203']);
+  });
+});
+
+describe('a fix that lets a value be read', () => {
+  it('may reveal an error between values as written, which is not the fix\'s doing: `plateau 0.0, peep 1e3cmH2O`', () => {
+    const text = 'vent plateau 0.0, peep 1e3cmH2O';
+    const result = checkNote(text);
+    const unit = result.findings.find((f) => f.code === 'PN202')!;
+    const action = codeActions(result, unit.range).find((a) => a.title === 'Change to cmH2O')!;
+    const after = checkNote(applyEdits(text, action.edits));
+    expect(after.findings.map((f) => f.code)).toEqual(['PN303']);
+    expect(problemsAfter(text, result, action)).toEqual([]);
+  });
+
+  it('still counts an error on a value the fix changed: a fix that rewrote the number would be caught', () => {
+    const text = 'vent plateau 12, peep 5 cmH20';
+    const result = checkNote(text);
+    const unit = result.findings.find((f) => f.code === 'PN202')!;
+    const forged: ActionInfo = { title: 'forged', kind: 'quickfix', resolves: [unit], edits: [{ range: { start: { line: 0, character: 22 }, end: { line: 0, character: 29 } }, newText: '15 cmH2O' }] };
+    expect(problemsAfter(text, result, forged)).toEqual(['forged: new error PN303 line 1:6: PEEP 15 cmH2O is above the plateau pressure 12 cmH2O; plateau pressure includes PEEP.']);
   });
 });

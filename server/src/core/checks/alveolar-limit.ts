@@ -22,27 +22,25 @@ export const pao2AboveAlveolar = defineCheck({
   source: SOURCES['alveolar-gas-equation'],
   runTimepoint(ctx) {
     const tp = ctx.timepoint;
-    {
-      // Only a PaO2 stated here is compared (asked without building the value).
-      if (tp.values.originOf('pao2') !== 'here') return;
-      const alveolar = derivedValueOf(ctx.derivation, 'pao2_alveolar');
-      const pao2 = tp.values.get('pao2');
-      if (!alveolar || !pao2 || pao2.origin.kind !== 'here' || !pao2.stated.usable || pao2.stated.value === null) return;
-      if (!isAboveAlveolar(pao2.stated.value, alveolar.value)) return;
-      const fio2 = derivedValueOf(ctx.derivation, 'pio2')?.inputs.find((t) => t.name === 'FiO2');
-      const related = fio2 && fio2.origin.kind !== 'default' && fio2.origin.kind !== 'derived'
-        ? [{ range: toRange(fio2.origin.line, fio2.origin.span), message: `FiO2 ${formatNumber(fio2.value, 2)} in force (${describeInputOrigin(fio2.origin)})` }]
-        : [];
-      const allowed = fio2 ? `FiO2 ${formatNumber(fio2.value, 2)}` : 'the FiO2';
-      const kpa = showsKpa(tp);
-      ctx.report({
-        range: toRange(pao2.stated.line, pao2.stated.item.value?.span ?? pao2.stated.item.span),
-        message: alveolar.value < 0
-          // The alveolar gas equation gives less than nothing: the inputs contradict each other whatever the PaO2.
-          ? `No PaO2 is possible here: with ${allowed}, the barometric pressure and the PaCO2 in force, the alveolar PO2 comes out at ${gasPressureText(alveolar.value, 0, kpa)}. Check the FiO2, the altitude or pressure, and the units of PaCO2 and PaO2.`
-          : `PaO2 ${gasPressureText(pao2.stated.value, 0, kpa)} is above the alveolar PO2 of ${gasPressureText(alveolar.value, 0, kpa)} that ${allowed} allows here: check the FiO2, the unit, and whether the sample was venous or had an air bubble.`,
-        related,
-      });
-    }
+    // Only a PaO2 stated here is compared (asked without building the value).
+    if (tp.values.originOf('pao2') !== 'here') return;
+    const alveolar = derivedValueOf(ctx.derivation, 'pao2_alveolar');
+    const pao2 = tp.values.get('pao2');
+    if (!alveolar || !pao2 || pao2.origin.kind !== 'here' || !pao2.stated.usable || pao2.stated.value === null) return;
+    if (!isAboveAlveolar(pao2.stated.value, alveolar.value)) return;
+    const fio2 = derivedValueOf(ctx.derivation, 'pio2')?.inputs.find((t) => t.name === 'FiO2');
+    const related = fio2 && fio2.origin.kind !== 'default' && fio2.origin.kind !== 'derived'
+      ? [{ range: toRange(fio2.origin.line, fio2.origin.span), message: `FiO2 ${formatNumber(fio2.value, 2)} in force (${describeInputOrigin(fio2.origin)})` }]
+      : [];
+    const allowed = fio2 ? `FiO2 ${formatNumber(fio2.value, 2)}` : 'the FiO2';
+    const kpa = showsKpa(tp);
+    ctx.report({
+      range: toRange(pao2.stated.line, pao2.stated.item.value?.span ?? pao2.stated.item.span),
+      message: alveolar.value < 0
+        // The alveolar gas equation gives less than nothing: the inputs contradict each other whatever the PaO2.
+        ? `No PaO2 is possible here: with ${allowed}, the barometric pressure and the PaCO2 in force, the alveolar PO2 comes out at ${gasPressureText(alveolar.value, 0, kpa)}. Check the FiO2, the altitude or pressure, and the units of PaCO2 and PaO2.`
+        : `PaO2 ${gasPressureText(pao2.stated.value, 0, kpa)} is above the alveolar PO2 of ${gasPressureText(alveolar.value, 0, kpa)} that ${allowed} allows here: check the FiO2, the unit, and whether the sample was venous or had an air bubble.`,
+      related,
+    });
   },
 });

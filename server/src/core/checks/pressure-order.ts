@@ -14,22 +14,20 @@ function orderCheck(ctx: TimepointContext, lowId: string, highId: string, messag
   const lowValue = tp.values.numberOf(lowId);
   const highValue = tp.values.numberOf(highId);
   if (lowValue === null || highValue === null || lowValue <= highValue) return;
-  {
-    const low = usableNumber(tp, lowId);
-    const high = usableNumber(tp, highId);
-    if (!low || !high || low.value <= high.value) return;
-    const here = [high, low].find((v) => v.input.origin.kind === 'here');
-    if (!here) return;
-    const other = here === high ? low : high;
-    const o = other.input.origin;
-    ctx.report({
-      range: toRange(here.input.stated.line, here.input.stated.item.span),
-      message: message(low.value, high.value),
-      ...(o.kind !== 'default' && o.kind !== 'here'
-        ? { related: [{ range: toRange(o.line, o.span), message: 'carried from here' }] }
-        : {}),
-    });
-  }
+  const low = usableNumber(tp, lowId);
+  const high = usableNumber(tp, highId);
+  if (!low || !high || low.value <= high.value) return;
+  const here = [high, low].find((v) => v.input.origin.kind === 'here');
+  if (!here) return;
+  const other = here === high ? low : high;
+  const o = other.input.origin;
+  ctx.report({
+    range: toRange(here.input.stated.line, here.input.stated.item.span),
+    message: message(low.value, high.value),
+    ...(o.kind !== 'default' && o.kind !== 'here'
+      ? { related: [{ range: toRange(o.line, o.span), message: 'carried from here' }] }
+      : {}),
+  });
 }
 
 function usableNumber(tp: Timepoint, id: string): { input: InputValue; value: number } | null {
@@ -91,20 +89,18 @@ export const systolicBelowDiastolic = defineCheck({
   },
   source: 'definition of systolic and diastolic pressure, no source needed',
   runTimepoint(ctx) {
-    {
-      for (const s of ctx.timepoint.stated) {
-        if (s.fieldId !== 'bp' || !s.parts) continue;
-        const sys = s.parts[0];
-        const dia = s.parts[1];
-        const value = s.item.value;
-        if (sys === undefined || dia === undefined || sys >= dia || value?.kind !== 'pair') continue;
-        const [a, b] = value.parts;
-        ctx.report({
-          range: toRange(s.line, value.span),
-          message: `Blood pressure ${value.text} mmHg: the systolic value is below the diastolic.`,
-          fixes: a && b ? [{ title: `Swap to ${b.text}/${a.text}`, edits: [{ range: toRange(s.line, value.span), newText: `${b.text}/${a.text}` }] }] : [],
-        });
-      }
+    for (const s of ctx.timepoint.stated) {
+      if (s.fieldId !== 'bp' || !s.parts) continue;
+      const sys = s.parts[0];
+      const dia = s.parts[1];
+      const value = s.item.value;
+      if (sys === undefined || dia === undefined || sys >= dia || value?.kind !== 'pair') continue;
+      const [a, b] = value.parts;
+      ctx.report({
+        range: toRange(s.line, value.span),
+        message: `Blood pressure ${value.text} mmHg: the systolic value is below the diastolic.`,
+        fixes: a && b ? [{ title: `Swap to ${b.text}/${a.text}`, edits: [{ range: toRange(s.line, value.span), newText: `${b.text}/${a.text}` }] }] : [],
+      });
     }
   },
 });
