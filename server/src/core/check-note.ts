@@ -130,8 +130,16 @@ function toFinding(check: CheckDef, r: Report): Finding {
   // Two literals rather than a spread of `related`: no object made only to be spread, and each
   // literal makes its findings of one shape.
   return r.related
-    ? { code, severity, message, range: r.range, fixes, docAnchor: anchor, related: r.related }
-    : { code, severity, message, range: r.range, fixes, docAnchor: anchor };
+    ? new RelatedFinding(code, severity, message, r.range, fixes, anchor, r.related)
+    : new PlainFinding(code, severity, message, r.range, fixes, anchor);
+}
+
+class PlainFinding implements Finding {
+  constructor(readonly code: string, readonly severity: Finding['severity'], readonly message: string, readonly range: Range, readonly fixes: readonly Fix[], readonly docAnchor: string) {}
+}
+
+class RelatedFinding implements Finding {
+  constructor(readonly code: string, readonly severity: Finding['severity'], readonly message: string, readonly range: Range, readonly fixes: readonly Fix[], readonly docAnchor: string, readonly related: NonNullable<Finding['related']>) {}
 }
 
 /**

@@ -414,7 +414,7 @@ function processBlock(lines: readonly LineNode[], start: number, end: number, in
     if (!inHeader && tpLabel === null) {
       tpLabel = 'start';
       tpStart = firstContentLine(tree);
-      tpTime = { day: null, minutes: null };
+      tpTime = new TimeAt(null, null);
     }
     if (context === null || context.place !== mutable.place || context.gasUnit !== mutable.gasUnit) context = reading.context = readContext(mutable, settings);
     const into = inHeader ? (header ??= []) : stated;
@@ -459,20 +459,20 @@ function labelOf(node: TimepointLine): string {
 
 function timeOf(node: TimepointLine, last: TimepointTime, isFirst: boolean): TimepointTime {
   const t = node.time;
-  if (!t) return { day: null, minutes: null };
+  if (!t) return new TimeAt(null, null);
   if (t.kind === 'offset') {
     const base = last.minutes ?? (isFirst ? 0 : null);
-    if (base === null || t.minutes === null) return { day: null, minutes: null };
+    if (base === null || t.minutes === null) return new TimeAt(null, null);
     const minutes = base + t.minutes;
-    return { day: compact(Math.floor(minutes / 1440) + 1), minutes: compact(minutes) };
+    return new TimeAt(compact(Math.floor(minutes / 1440) + 1), compact(minutes));
   }
   // A day without a time of day: the day is known, the minutes are not (never an invented midnight).
-  if (t.kind === 'day') return { day: t.day, minutes: null };
+  if (t.kind === 'day') return new TimeAt(t.day, null);
   // clock
-  if (t.minutes === null) return { day: null, minutes: null };
+  if (t.minutes === null) return new TimeAt(null, null);
   let day = t.day ?? last.day ?? 1;
   if (t.day === null && last.minutes !== null && (day - 1) * 1440 + t.minutes < last.minutes) day += 1; // past midnight
-  return { day: compact(day), minutes: compact((day - 1) * 1440 + t.minutes) };
+  return new TimeAt(compact(day), compact((day - 1) * 1440 + t.minutes));
 }
 
 /** How bare numbers are read, and the held values it was worked out from. */
@@ -786,7 +786,19 @@ function isHereOnly(s: StatedValue): boolean {
 function freeze(index: number, line: number | null, label: string, startLine: number, time: TimepointTime, stated: readonly StatedValue[], endLine: number, state: CarryState, settings: Settings): Timepoint {
   const values = new ValuesAt(index, state, stated);
   const gasUnit = gasUnitInForce(state, settings);
-  return { index, line, label, startLine, endLine, time, stated, values, barometricMmhg: barometricAt(state.place, settings), gasUnit, shownGasUnit: gasUnitWritten(stated) ?? gasUnit };
+  return new TimepointAt(index, line, label, startLine, endLine, time, stated, values, barometricAt(state.place, settings), gasUnit, gasUnitWritten(stated) ?? gasUnit);
+}
+
+class TimepointAt implements Timepoint {
+  constructor(
+    readonly index: number, readonly line: number | null, readonly label: string, readonly startLine: number, readonly endLine: number,
+    readonly time: TimepointTime, readonly stated: readonly StatedValue[], readonly values: ValuesInForce, readonly barometricMmhg: number | null,
+    readonly gasUnit: 'mmHg' | 'kPa', readonly shownGasUnit: 'mmHg' | 'kPa',
+  ) {}
+}
+
+class TimeAt implements TimepointTime {
+  constructor(readonly day: number | null, readonly minutes: number | null) {}
 }
 
 /**

@@ -9,14 +9,17 @@ import { isKnownUnitSpelling, UNITS } from '../fields/units';
 import { closest } from '../util/suggest';
 import { Chunk, isBlank, isDigit, leadingNumber, LEXED, lowerCase, releaseWords, scanNumber, scanWord, SCANNED, wordsOf, Word } from './lexer';
 import type {
+  BlankLine,
   ItemNode,
   LineFix,
   LineNode,
   NoteTree,
   NumberValue,
   PairValue,
+  SectionLine,
   Span,
   SyntaxIssue,
+  TimepointLine,
   TimeSpec,
   Token,
   ValueNode,
@@ -195,6 +198,31 @@ export function parseLine(text: string, line: number): LineNode {
   }
 }
 
+/**
+ * Line nodes are made by constructors, not object literals: a literal's allocation site makes V8
+ * track each object it makes for pretenuring, and the tree keeps every line node.
+ */
+class BlankNode implements BlankLine {
+  readonly kind = 'blank' as const;
+  constructor(readonly line: number, readonly text: string, readonly comment: Token | null, readonly issues: readonly SyntaxIssue[]) {}
+}
+
+class SectionNode implements SectionLine {
+  readonly kind = 'section' as const;
+  constructor(
+    readonly line: number, readonly text: string, readonly comment: Token | null, readonly section: SectionId,
+    readonly sectionToken: Token, readonly items: readonly ItemNode[], readonly prose: Token | null, readonly issues: readonly SyntaxIssue[],
+  ) {}
+}
+
+class TimepointNode implements TimepointLine {
+  readonly kind = 'timepoint' as const;
+  constructor(
+    readonly line: number, readonly text: string, readonly comment: Token | null, readonly marker: Token,
+    readonly time: TimeSpec | null, readonly label: Token | null, readonly issues: readonly SyntaxIssue[],
+  ) {}
+}
+
 function parseLineUnsafe(text: string, line: number): LineNode {
   const hash = text.indexOf('#');
   const bodyEnd = hash >= 0 ? hash : text.length;
@@ -206,7 +234,7 @@ function parseLineUnsafe(text: string, line: number): LineNode {
   if (!first) {
     // A line of commas only (`,`): nothing is read from it, and a comma is not a blank.
     const comma = body.indexOf(',');
-    return { kind: 'blank', line, text, comment, issues: comma < 0 ? NONE : [strayCommaIssue(body, comma, body.length, 'alone', '', text.length)] };
+    return new BlankNode(line, text, comment, comma < 0 ? NONE : [strayCommaIssue(body, comma, body.length, 'alone', '', text.length)]);
   }
 
   if (first.text.charCodeAt(0) === 0x40 /* @ */) return parseTimepoint(body, chunks, line, text, comment);
@@ -235,7 +263,7 @@ function parseLineUnsafe(text: string, line: number): LineNode {
       strayCommas(body, chunks, true, false, found);
       noteIssues = found;
     }
-    return { kind: 'section', line, text, comment, section: section.id, sectionToken, items: NONE, prose, issues: noteIssues };
+    return new SectionNode(line, text, comment, section.id, sectionToken, NONE, prose, noteIssues);
   }
   const issues = lineIssues();
   if (first.afterComma || chunks[1]?.afterComma || doubledComma || commaAfterLoneWord(body, chunks)) strayCommas(body, chunks, true, doubledComma, issues);
@@ -244,7 +272,7 @@ function parseLineUnsafe(text: string, line: number): LineNode {
     if (body.charCodeAt(last.end - 1) === 0x2e /* . */) leaveOutFullStop(chunks, issues);
   }
   const items = parseItems(section.id, chunks, 1, issues, text);
-  return { kind: 'section', line, text, comment, section: section.id, sectionToken, items, prose: null, issues: keptIssues(issues) };
+  return new SectionNode(line, text, comment, section.id, sectionToken, items, null, keptIssues(issues));
 }
 
 /**
@@ -478,7 +506,7 @@ function parseTimepoint(body: string, chunks: Word[], line: number, text: string
   const labelEnd = l0 ? proseEnd(body) : 0;
   // Cut from the line when read (one object rather than a token and its text): the timeline reads it once.
   const label: Token | null = l0 ? new CutToken(body, l0.start, labelEnd) : null;
-  return { kind: 'timepoint', line, text, comment, marker, time, label, issues: keptIssues(issues) };
+  return new TimepointNode(line, text, comment, marker, time, label, keptIssues(issues));
 }
 
 /**

@@ -3,7 +3,7 @@
  * complete even when lines are broken. Ranges are line-relative character offsets (UTF-16)
  * plus the node's line number; `toRange` turns a span into an editor range.
  */
-import type { Fix, Range, Severity } from '../types';
+import type { Fix, Position, Range, Severity } from '../types';
 import type { FieldDef } from '../fields/registry';
 import type { SectionId } from '../fields/sections';
 
@@ -142,7 +142,16 @@ export interface NoteTree {
 }
 
 export function toRange(line: number, span: Span): Range {
-  return { start: { line, character: span.start }, end: { line, character: span.end } };
+  return new LineRange(new At(line, span.start), new At(line, span.end));
+}
+
+/** Made by constructors, not literals: see `PlainFinding` in check-note.ts. */
+class At implements Position {
+  constructor(readonly line: number, readonly character: number) {}
+}
+
+class LineRange implements Range {
+  constructor(readonly start: Position, readonly end: Position) {}
 }
 
 export function lineFixToFix(line: number, fix: LineFix): Fix {
