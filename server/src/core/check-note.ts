@@ -127,13 +127,18 @@ function toFinding(check: CheckDef, r: Report): Finding {
   const message = ownString(r.message);
   const fixes = r.fixes ?? NONE;
   const anchor = docAnchor(check);
-  // Two literals rather than a spread of `related`: no object made only to be spread, and each
-  // literal makes its findings of one shape.
+  // Two classes rather than a spread of `related`: no object made only to be spread, and each makes
+  // its findings of one shape.
   return r.related
     ? new RelatedFinding(code, severity, message, r.range, fixes, anchor, r.related)
     : new PlainFinding(code, severity, message, r.range, fixes, anchor);
 }
 
+/**
+ * Findings are made by constructors, not object literals: V8 would pretenure a literal whose
+ * objects all survive, and old findings would keep the young parts of every earlier result alive
+ * through young-generation collections (see the performance notes in DEVELOPERS.md).
+ */
 class PlainFinding implements Finding {
   constructor(readonly code: string, readonly severity: Finding['severity'], readonly message: string, readonly range: Range, readonly fixes: readonly Fix[], readonly docAnchor: string) {}
 }

@@ -101,9 +101,44 @@ export interface TimelineCache {
   readonly blocks: readonly BlockEntry[];
 }
 
+/*
+ * What the timeline keeps (held values, states, block results and entries, timepoints and their
+ * times) is made by constructors, not object literals: V8 tracks each literal's allocation site and,
+ * seeing that everything it makes survives, allocates it straight in the old generation, where it
+ * keeps the young parts of every earlier result alive through young-generation collections (see
+ * the performance notes in DEVELOPERS.md).
+ */
+class HeldValue implements Held {
+  constructor(readonly stated: StatedValue, readonly timepoint: number, readonly label: string) {}
+}
+
+class State implements CarryState {
+  constructor(readonly patient: HeldMap, readonly place: HeldMap, readonly oxygen: HeldMap, readonly vent: HeldMap, readonly gasUnit: Held | null) {}
+}
+
+class Block implements BlockResult {
+  constructor(readonly timepoint: Timepoint | null, readonly header: readonly StatedValue[], readonly issues: readonly ReadIssue[], readonly stateOut: CarryState, readonly timeOut: TimepointTime) {}
+}
+
+class Entry implements BlockEntry {
+  constructor(readonly start: number, readonly index: number, readonly endLine: number, readonly stateIn: CarryState, readonly timeIn: TimepointTime, readonly result: BlockResult) {}
+}
+
+class TimepointAt implements Timepoint {
+  constructor(
+    readonly index: number, readonly line: number | null, readonly label: string, readonly startLine: number, readonly endLine: number,
+    readonly time: TimepointTime, readonly stated: readonly StatedValue[], readonly values: ValuesInForce, readonly barometricMmhg: number | null,
+    readonly gasUnit: 'mmHg' | 'kPa', readonly shownGasUnit: 'mmHg' | 'kPa',
+  ) {}
+}
+
+class TimeAt implements TimepointTime {
+  constructor(readonly day: number | null, readonly minutes: number | null) {}
+}
+
 const EMPTY: HeldMap = new Map();
-const START_STATE: CarryState = Object.freeze({ patient: EMPTY, place: EMPTY, oxygen: EMPTY, vent: EMPTY, gasUnit: null });
-const START_TIME: TimepointTime = Object.freeze({ day: null, minutes: null });
+const START_STATE: CarryState = Object.freeze(new State(EMPTY, EMPTY, EMPTY, EMPTY, null));
+const START_TIME: TimepointTime = Object.freeze(new TimeAt(null, null));
 
 export function buildTimeline(tree: NoteTree, settings: Settings): Timeline {
   return buildTimelineIncremental(tree, settings, null).timeline;
@@ -164,7 +199,7 @@ export function buildTimelineIncremental(
     }
     // A block taken from the cache with the very same incoming state keeps its entry (a big note
     // has thousands of blocks, and an edit changes one).
-    entries[b] = old && result === old.result && old.stateIn === state && old.timeIn === time ? old : { start, index, endLine, stateIn: state, timeIn: time, result };
+    entries[b] = old && result === old.result && old.stateIn === state && old.timeIn === time ? old : new Entry(start, index, endLine, state, time, result);
     if (result.timepoint) timepoints[count++] = result.timepoint;
     // Indexed: both lists are empty in most blocks.
     for (let k = 0; k < result.header.length; k++) header.push(result.header[k]!);
@@ -204,7 +239,7 @@ class Relocator {
     const tp = result.timepoint;
     const stateOut = this.state(result.stateOut);
     const header = result.header.length === 0 ? result.header : result.header.map((s) => this.stated(s));
-    return { timepoint: tp ? this.timepoint(tp, stateOut) : null, header, issues, stateOut, timeOut: result.timeOut };
+    return new Block(tp ? this.timepoint(tp, stateOut) : null, header, issues, stateOut, result.timeOut);
   }
 
   private line(line: number): number {
@@ -213,10 +248,10 @@ class Relocator {
 
   private timepoint(tp: Timepoint, state: CarryState): Timepoint {
     const stated = tp.stated.map((s) => this.stated(s));
-    return {
-      index: tp.index, line: tp.line === null ? null : this.line(tp.line), label: tp.label, startLine: this.line(tp.startLine), endLine: this.line(tp.endLine),
-      time: tp.time, stated, values: new ValuesAt(tp.index, state, stated), barometricMmhg: tp.barometricMmhg, gasUnit: tp.gasUnit, shownGasUnit: tp.shownGasUnit,
-    };
+    return new TimepointAt(
+      tp.index, tp.line === null ? null : this.line(tp.line), tp.label, this.line(tp.startLine), this.line(tp.endLine),
+      tp.time, stated, new ValuesAt(tp.index, state, stated), tp.barometricMmhg, tp.gasUnit, tp.shownGasUnit,
+    );
   }
 
   /** A stated value moved: a `MovedValue` of the value it was read as, on its new line. */
@@ -234,7 +269,7 @@ class Relocator {
     if (stated === h.stated) return h;
     const known = this.copies.get(h);
     if (known) return known as Held;
-    const copy: Held = { stated, timepoint: h.timepoint, label: h.label };
+    const copy: Held = new HeldValue(stated, h.timepoint, h.label);
     this.copies.set(h, copy);
     return copy;
   }
@@ -432,14 +467,11 @@ function processBlock(lines: readonly LineNode[], start: number, end: number, in
   const keptHeader = header ?? NONE;
   const keptIssues = issues.length === 0 ? NONE : issues.slice();
   issues.length = 0;
-  // Kept as long as the timepoint: a copy of its exact length.
-  const keptStated = new Array<StatedValue>(count);
-  for (let k = 0; k < count; k++) {
-    keptStated[k] = stated[k]!;
-    stated[k] = undefined;
-  }
-  if (tpLabel === null) return { timepoint: null, header: keptHeader, issues: keptIssues, stateOut, timeOut };
-  return { timepoint: freeze(index, tpLine, tpLabel, tpStart, tpTime, keptStated, endLine, stateOut, settings), header: keptHeader, issues: keptIssues, stateOut, timeOut };
+  // Kept as long as the timepoint: a copy of its exact length, made by `slice` (an array made with
+  // `new Array(n)` would be tracked by its allocation site and pretenured, see `HeldValue`).
+  const keptStated = stated.slice(0, count) as StatedValue[];
+  for (let k = 0; k < count; k++) stated[k] = undefined;
+  return new Block(tpLabel === null ? null : freeze(index, tpLine, tpLabel, tpStart, tpTime, keptStated, endLine, stateOut, settings), keptHeader, keptIssues, stateOut, timeOut);
 }
 
 /** Scratch space of `processBlock`: the values stated at the block's timepoint, and its read issues. */
@@ -586,7 +618,7 @@ function hold(base: HeldMap, stated: readonly (StatedValue | undefined)[], from:
       next = new Map();
       base.forEach(copyInto, next);
     }
-    next.set(s.fieldId, { stated: s, timepoint: tp, label });
+    next.set(s.fieldId, new HeldValue(s, tp, label));
   }
   return next ?? base;
 }
@@ -600,7 +632,7 @@ function apply(section: SectionId, stated: readonly (StatedValue | undefined)[],
   switch (section) {
     case 'patient': state.patient = hold(state.patient, stated, from, to, tp, label); break;
     case 'place': if (to > from) state.place = hold(EMPTY, stated, from, to, tp, label); break;
-    case 'units': { const g = firstOf(stated, from, to, 'gas_unit'); if (g?.word) state.gasUnit = { stated: g, timepoint: tp, label }; break; }
+    case 'units': { const g = firstOf(stated, from, to, 'gas_unit'); if (g?.word) state.gasUnit = new HeldValue(g, tp, label); break; }
     case 'oxygen': state.oxygen = hold(EMPTY, stated, from, to, tp, label); state.vent = EMPTY; break;
     case 'vent': {
       state.oxygen = EMPTY;
@@ -634,8 +666,7 @@ const WORKING: MutableState = { patient: EMPTY, place: EMPTY, oxygen: EMPTY, ven
 function reuseEqual(state: MutableState, stateIn: CarryState, previous: CarryState | null): CarryState {
   if (!previous) {
     if (state.patient === stateIn.patient && state.place === stateIn.place && state.oxygen === stateIn.oxygen && state.vent === stateIn.vent && state.gasUnit === stateIn.gasUnit) return stateIn;
-    // Written out rather than spread: a spread copy keeps its fields outside the object, in a second one.
-    return { patient: state.patient, place: state.place, oxygen: state.oxygen, vent: state.vent, gasUnit: state.gasUnit };
+    return new State(state.patient, state.place, state.oxygen, state.vent, state.gasUnit);
   }
   const reuseMap = (now: HeldMap, before: HeldMap): HeldMap => {
     let same = now.size === before.size;
@@ -650,13 +681,7 @@ function reuseEqual(state: MutableState, stateIn: CarryState, previous: CarrySta
     return same ? before : next;
   };
   const gasUnit = state.gasUnit && previous.gasUnit && sameHeld(state.gasUnit, previous.gasUnit) ? previous.gasUnit : state.gasUnit;
-  return {
-    patient: reuseMap(state.patient, previous.patient),
-    place: reuseMap(state.place, previous.place),
-    oxygen: reuseMap(state.oxygen, previous.oxygen),
-    vent: reuseMap(state.vent, previous.vent),
-    gasUnit,
-  };
+  return new State(reuseMap(state.patient, previous.patient), reuseMap(state.place, previous.place), reuseMap(state.oxygen, previous.oxygen), reuseMap(state.vent, previous.vent), gasUnit);
 }
 
 function sameHeld(a: Held, b: Held): boolean {
@@ -787,18 +812,6 @@ function freeze(index: number, line: number | null, label: string, startLine: nu
   const values = new ValuesAt(index, state, stated);
   const gasUnit = gasUnitInForce(state, settings);
   return new TimepointAt(index, line, label, startLine, endLine, time, stated, values, barometricAt(state.place, settings), gasUnit, gasUnitWritten(stated) ?? gasUnit);
-}
-
-class TimepointAt implements Timepoint {
-  constructor(
-    readonly index: number, readonly line: number | null, readonly label: string, readonly startLine: number, readonly endLine: number,
-    readonly time: TimepointTime, readonly stated: readonly StatedValue[], readonly values: ValuesInForce, readonly barometricMmhg: number | null,
-    readonly gasUnit: 'mmHg' | 'kPa', readonly shownGasUnit: 'mmHg' | 'kPa',
-  ) {}
-}
-
-class TimeAt implements TimepointTime {
-  constructor(readonly day: number | null, readonly minutes: number | null) {}
 }
 
 /**

@@ -199,8 +199,8 @@ export function parseLine(text: string, line: number): LineNode {
 }
 
 /**
- * Line nodes are made by constructors, not object literals: a literal's allocation site makes V8
- * track each object it makes for pretenuring, and the tree keeps every line node.
+ * Line nodes are made by constructors, not object literals: the tree keeps every one, and V8 would
+ * pretenure a literal's allocation site whose objects all survive (see `PlainFinding` in check-note.ts).
  */
 class BlankNode implements BlankLine {
   readonly kind = 'blank' as const;
@@ -933,13 +933,16 @@ class PairNode extends Cut implements PairValue {
 
   /** The values of the numbers, in a new list of their own (no node per number). */
   numbers(): number[] {
-    const values = new Array<number>(this.count);
+    // Read into scratch space and copied out with `slice`: an array made with `new Array(n)` or a
+    // literal is tracked by its allocation site, and one kept this often would be pretenured (see
+    // the performance notes in DEVELOPERS.md).
+    const values = PAIR_NUMBERS;
     let at = this.start;
-    for (let k = 0; k < values.length; k++) {
+    for (let k = 0; k < this.count; k++) {
       at = this.numberAt(at, k) + NUMBER_LENGTH;
       values[k] = compact(SCANNED.value);
     }
-    return values;
+    return values.slice(0, this.count);
   }
 
   hasDecimalComma(): boolean {
@@ -964,6 +967,9 @@ class PairNode extends Cut implements PairValue {
 export function pairNumbers(pair: PairValue): number[] {
   return pair instanceof PairNode ? pair.numbers() : pair.parts.map((p) => p.value);
 }
+
+/** Scratch space of `PairNode.numbers`. */
+const PAIR_NUMBERS: number[] = [];
 
 /** The length of the number `PairNode.numberAt` read last (read right after the call). */
 let NUMBER_LENGTH = 0;

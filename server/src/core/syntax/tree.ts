@@ -145,7 +145,7 @@ export function toRange(line: number, span: Span): Range {
   return new LineRange(new At(line, span.start), new At(line, span.end));
 }
 
-/** Made by constructors, not literals: see `PlainFinding` in check-note.ts. */
+/** Ranges are made by constructors, not literals: see `PlainFinding` in check-note.ts. */
 class At implements Position {
   constructor(readonly line: number, readonly character: number) {}
 }
