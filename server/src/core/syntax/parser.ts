@@ -706,6 +706,12 @@ interface Located {
 }
 
 /** A token that is its own span (one object, not two): a chunk no comma came before. */
+/** A word value (a mode, a device): made by a constructor, as line nodes are. */
+class WordNode implements WordValue {
+  readonly kind = 'word' as const;
+  constructor(readonly text: string, readonly span: Span) {}
+}
+
 function token(text: string, start: number, end: number): Chunk {
   return new Chunk(text, start, end, false);
 }
@@ -1266,7 +1272,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
     const dev = deviceWordAt(chunks, start);
     if (dev) {
       i = start + dev.used;
-      const value: WordValue = { kind: 'word', text: dev.text, span: dev.span };
+      const value: WordValue = new WordNode(dev.text, dev.span);
       items[count++] = otherItem(null, 'device', 'device', fieldFor(section, 'device') ?? null, value, null, dev.span.start);
       const next = chunks[i];
       if (next && !next.afterComma) {
@@ -1311,10 +1317,10 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
             const dev = deviceWordAt(chunks, i);
             const used = dev?.used ?? 1;
             const span = dev?.span ?? next.span;
-            value = { kind: 'word', text: dev?.text ?? next.text, span };
+            value = new WordNode(dev?.text ?? next.text, span);
             i += used;
           } else {
-            value = { kind: 'word', text: next.text, span: next.span };
+            value = new WordNode(next.text, next.span);
             i++;
           }
         }
