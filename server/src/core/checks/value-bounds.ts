@@ -93,9 +93,10 @@ export const impossibleValue = defineCheck({
   source: 'field registry bounds; each field names its source (mostly common practice, no source)',
   ...valueCheck((ctx, stated, barometricMmhg) => {
     const field = stated.item.field;
-    if (!field?.hard || OWN_CHECKS.has(field.id) || stated.readUnit === null || stated.unitDoubt) return;
+    // Most values are within bounds: asked first, the rest only of the few that are not.
+    if (!field?.hard || !outOfBounds(stated, field.hard)) return;
+    if (OWN_CHECKS.has(field.id) || stated.readUnit === null || stated.unitDoubt) return;
     if (SATURATIONS.has(field.id) && noneNegative(stated)) return;
-    if (!outOfBounds(stated, field.hard)) return;
     const fix = otherUnitFix(field, stated, barometricMmhg);
     ctx.report({
       range: toRange(stated.line, stated.item.value?.span ?? stated.item.span),
@@ -135,7 +136,9 @@ export const unusualValue = defineCheck({
   source: 'field registry bounds; each field names its source (mostly common practice, no source)',
   ...valueCheck((ctx, stated, barometricMmhg) => {
     const field = stated.item.field;
-    if (!field?.soft || OWN_CHECKS.has(field.id) || !stated.usable || stated.readUnit === null || stated.unitDoubt) return;
+    // Most values are within the usual bounds, which a low barometric pressure only widens: asked first.
+    if (!field?.soft || !outOfBounds(stated, field.soft)) return;
+    if (OWN_CHECKS.has(field.id) || !stated.usable || stated.readUnit === null || stated.unitDoubt) return;
     if (field.hard && outOfBounds(stated, field.hard)) return;
     const soft = softBoundsAt(field, barometricMmhg);
     if (!outOfBounds(stated, soft)) return;
@@ -159,7 +162,7 @@ export const saturationAbove100 = defineCheck({
   },
   source: 'definition of saturation (a fraction of haemoglobin), no source needed',
   ...valueCheck((ctx, stated) => {
-    if (!SATURATIONS.has(stated.fieldId) || stated.value === null || stated.value <= 100) return;
+    if (stated.value === null || stated.value <= 100 || !SATURATIONS.has(stated.fieldId)) return;
     ctx.report({
       range: toRange(stated.line, stated.item.value?.span ?? stated.item.span),
       message: `${fieldById(stated.fieldId)?.label ?? stated.fieldId} ${stated.item.value?.text ?? ''} % is above 100 %, which is impossible.`,
