@@ -11,6 +11,7 @@ import { within } from '../../server/src/core/analysis/bounds';
 import { fieldById } from '../../server/src/core/fields/registry';
 import { applyEdits, codeActions, convertNoteUnits, editsOverlap, keepsValues, type ActionInfo } from '../../server/src/core/service';
 import type { TextEdit } from '../../server/src/core/types';
+import { PLACEHOLDERS } from '../../server/src/core/privacy/types';
 import { note, noteAt } from './cursor';
 import { messyNote } from './note-arbitraries';
 
@@ -255,6 +256,9 @@ function tolerance(s: StatedValue): number {
   }
 }
 
+/** What a privacy quick fix writes in place of what it found. */
+const REDACTION_PLACEHOLDERS: ReadonlySet<string> = new Set(Object.values(PLACEHOLDERS));
+
 function comments(text: string): string[] {
   return checkNote(text).analysis.tree.lines.flatMap((l) => (l.comment ? [l.comment.text] : [])).sort();
 }
@@ -313,7 +317,10 @@ describe('action properties', () => {
           expect(editsOverlap(action.edits), action.title).toBe(false);
           const changed = applyEdits(text, action.edits);
           const again = checkNote(changed);
-          expect(comments(changed), action.title).toEqual(comments(text));
+          // A redaction (privacy findings) writes its placeholder over the text it found, in a
+          // comment too (`#Mr AA` → `#Mr [name]`); nothing else changes a comment.
+          const redactions = action.edits.filter((e) => REDACTION_PLACEHOLDERS.has(e.newText));
+          expect(comments(changed), action.title).toEqual(comments(applyEdits(text, redactions)));
           const added = again.analysis.tree.lines.length - result.analysis.tree.lines.length;
           expect(added === 0 || (added === 1 && action.title.startsWith('Convert every')), action.title).toBe(true);
           const moved = lineMapping(action, result);
@@ -398,5 +405,17 @@ describe('action properties', () => {
       // Converting again changes nothing.
       expect(applyEdits(converted, convertNoteUnits(again, to))).toBe(converted);
     }), { numRuns: ACTION_RUNS });
+  });
+});
+
+describe('a redaction in a comment', () => {
+  it('rewrites the comment only where it found the name (`#Mr AA` → `#Mr [name]`), which the property above allows and nothing else may do', () => {
+    const text = 'abg 0.00/7.35, #Mr AA $';
+    const result = checkNote(text);
+    const name = result.findings.find((f) => f.code === 'PN501');
+    expect(name?.range.start.character).toBe(19);
+    const fix = codeActions(result, name!.range).find((a) => a.title === 'Replace `AA` with [name]');
+    expect(fix?.edits.map((e) => e.newText)).toEqual(['[name]']);
+    expect(comments(applyEdits(text, fix!.edits))).toEqual(['#Mr [name] $']);
   });
 });
