@@ -18,10 +18,10 @@ import { moveLineNames, shiftedLine, type LineShift, type Timepoint } from './an
 import { internalError } from './checks/internal';
 import { CHECKS, docAnchor } from './checks/registry';
 import { withDefaults, type Settings } from './settings';
-import type { NoteTree } from './syntax/tree';
+import { rangeBetween, type NoteTree } from './syntax/tree';
 import { comparePositions, type Finding, type Fix, type Range } from './types';
 import { ownString } from './util/strings';
-import { NONE } from './util/lists';
+import { keptList, NONE } from './util/lists';
 import { keptFor, SmallStore, type Kept } from './util/small-store';
 import { derivationOf } from './derive/registry';
 
@@ -100,7 +100,7 @@ export function runChecks(analysis: NoteAnalysis, settings: Settings, checks: re
     timepointShared.clear();
     // Without a cache the timepoint's findings go straight into the note's list (sorted below):
     // no list per timepoint to make and copy.
-    own = cache ? [] : findings;
+    own = cache ? keptList<Finding>() : findings;
     for (let k = 0; k < perTimepoint.length; k++) {
       const check = perTimepoint[k]!;
       current = check;
@@ -185,10 +185,9 @@ export function relocateFindings(findings: readonly Finding[], shift: LineShift)
         related.push({ ...r, range: at, message: words });
       }
     }
-    out.push({
-      code: f.code, severity: f.severity, message, range, fixes, docAnchor: f.docAnchor,
-      ...(related ? { related } : {}),
-    });
+    out.push(related
+      ? new RelatedFinding(f.code, f.severity, message, range, fixes, f.docAnchor, related)
+      : new PlainFinding(f.code, f.severity, message, range, fixes, f.docAnchor));
   }
   return out;
 }
@@ -199,5 +198,5 @@ function moveRange(range: Range, shift: LineShift): Range | null {
   const end = shiftedLine(shift, range.end.line);
   if (start === null || end === null) return null;
   if (start === range.start.line && end === range.end.line) return range;
-  return { start: { line: start, character: range.start.character }, end: { line: end, character: range.end.character } };
+  return rangeBetween(start, range.start.character, end, range.end.character);
 }

@@ -20,7 +20,7 @@ import { buildTimelineIncremental, type TimelineCache } from './analysis/timelin
 import { deriverFor } from './analysis/analyse';
 import type { LineShift } from './analysis/model';
 import { withDefaults, type Settings } from './settings';
-import { firstEol, parseLine, splitLines } from './syntax/parser';
+import { firstEol, movedLine, parseLine, splitLines } from './syntax/parser';
 import type { LineNode, NoteTree } from './syntax/tree';
 import { ownString } from './util/strings';
 
@@ -242,7 +242,7 @@ export class NoteSession {
     for (let k = 0; k < tail; k++) {
       const i = n - tail + k;
       const node = before[m - tail + k]!;
-      nodes[i] = node.line === i ? node : { ...node, line: i };
+      nodes[i] = node.line === i ? node : movedLine(node, i);
       // In place (n === m) the index is the same on both sides: each start is read before it is written.
       starts[i] = oldStarts[m - tail + k]! + delta;
     }

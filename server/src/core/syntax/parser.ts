@@ -22,6 +22,7 @@ import type {
   TimepointLine,
   TimeSpec,
   Token,
+  UnknownLine,
   ValueNode,
   WordValue,
 } from './tree';
@@ -192,7 +193,7 @@ export function parseLine(text: string, line: number): LineNode {
     return parseLineUnsafe(text, line);
   } catch {
     // Defensive: the parser is written not to throw, but a line must never take the note down.
-    return { kind: 'blank', line, text, comment: null, issues: [{ check: 'stray-text', span: { start: 0, end: text.length }, message: 'This line could not be read.', fixes: [] }] };
+    return new BlankNode(line, text, null, [{ check: 'stray-text', span: { start: 0, end: text.length }, message: 'This line could not be read.', fixes: [] }]);
   } finally {
     releaseWords();
   }
@@ -213,6 +214,24 @@ class SectionNode implements SectionLine {
     readonly line: number, readonly text: string, readonly comment: Token | null, readonly section: SectionId,
     readonly sectionToken: Token, readonly items: readonly ItemNode[], readonly prose: Token | null, readonly issues: readonly SyntaxIssue[],
   ) {}
+}
+
+class UnknownNode implements UnknownLine {
+  readonly kind = 'unknown' as const;
+  constructor(
+    readonly line: number, readonly text: string, readonly comment: Token | null, readonly first: Token,
+    readonly rest: Token | null, readonly issues: readonly SyntaxIssue[],
+  ) {}
+}
+
+/** The same line node at another line number (lines moved by an edit above them). */
+export function movedLine(node: LineNode, line: number): LineNode {
+  switch (node.kind) {
+    case 'blank': return new BlankNode(line, node.text, node.comment, node.issues);
+    case 'section': return new SectionNode(line, node.text, node.comment, node.section, node.sectionToken, node.items, node.prose, node.issues);
+    case 'timepoint': return new TimepointNode(line, node.text, node.comment, node.marker, node.time, node.label, node.issues);
+    case 'unknown': return new UnknownNode(line, node.text, node.comment, node.first, node.rest, node.issues);
+  }
 }
 
 class TimepointNode implements TimepointLine {
@@ -251,7 +270,7 @@ function parseLineUnsafe(text: string, line: number): LineNode {
     strayCommas(body, chunks, false, false, strays);
     // Last: it may read the line again under a section, which reuses the lexer's words (`chunks`).
     const issues = [unknownSectionIssue(sectionToken, body, line), ...strays];
-    return { kind: 'unknown', line, text, comment, first: sectionToken, rest, issues };
+    return new UnknownNode(line, text, comment, sectionToken, rest, issues);
   }
   if (section.id === 'note') {
     const proseStart = chunks[1]?.start;

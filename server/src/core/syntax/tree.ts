@@ -145,6 +145,11 @@ export function toRange(line: number, span: Span): Range {
   return new LineRange(new At(line, span.start), new At(line, span.end));
 }
 
+/** A range from one position to another (a range moved with its lines). */
+export function rangeBetween(startLine: number, startCharacter: number, endLine: number, endCharacter: number): Range {
+  return new LineRange(new At(startLine, startCharacter), new At(endLine, endCharacter));
+}
+
 /** Ranges are made by constructors, not literals: see `PlainFinding` in check-note.ts. */
 class At implements Position {
   constructor(readonly line: number, readonly character: number) {}
