@@ -62,6 +62,9 @@ function problemsAfter(text: string, result: NoteResult, action: ActionInfo): st
   return problems;
 }
 
+/** A decimal comma is read as a point (and reported) until it is fixed: texts compared with their commas as points. */
+const points = (text: string) => text.replace(/(\d),(\d)/g, '$1.$2');
+
 /**
  * An error about a value as the note wrote it, which the fix let be read rather than made: the
  * value's text is on the line before the fix (`vitals co 100..` with its full stop removed reads
@@ -71,8 +74,6 @@ function problemsAfter(text: string, result: NoteResult, action: ActionInfo): st
  */
 function revealed(g: Finding, again: NoteResult, before: NoteResult): boolean {
   const node = again.analysis.tree.lines[g.range.start.line];
-  // A decimal comma is read as a point (and reported) until it is fixed.
-  const points = (text: string) => text.replace(/(\d),(\d)/g, '$1.$2');
   const beforeLine = points(before.analysis.tree.lines[g.range.start.line]?.text ?? '');
   if (node?.kind !== 'section') return false;
   const at = g.range.start.character;
@@ -126,10 +127,9 @@ function convertedAsMeant(line: number, index: number, again: NoteResult, before
  * judged by `revealed`, which asks whether the fix chose its unit.
  */
 function comparedWithValueLetRead(g: Finding, action: ActionInfo, before: NoteResult, again: NoteResult): boolean {
-  const points = (text: string) => text.replace(/(\d),(\d)/g, '$1.$2');
+  if (g.code === 'PN301') return false;
   const usable = (s: StatedValue | undefined) => s?.usable === true && (s.value !== null || s.parts !== null || s.word !== null);
   const readBefore = (line: number, fieldId: string) => before.analysis.timeline.timepoints.some((tp) => tp.stated.some((s) => s.line === line && s.fieldId === fieldId && usable(s)));
-  if (g.code === 'PN301') return false;
   const letRead: number[] = [];
   for (const line of new Set(action.edits.map((e) => e.range.start.line))) {
     const node = again.analysis.tree.lines[line];

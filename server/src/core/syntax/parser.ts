@@ -224,6 +224,14 @@ class UnknownNode implements UnknownLine {
   ) {}
 }
 
+class TimepointNode implements TimepointLine {
+  readonly kind = 'timepoint' as const;
+  constructor(
+    readonly line: number, readonly text: string, readonly comment: Token | null, readonly marker: Token,
+    readonly time: TimeSpec | null, readonly label: Token | null, readonly issues: readonly SyntaxIssue[],
+  ) {}
+}
+
 /** The same line node at another line number (lines moved by an edit above them). */
 export function movedLine(node: LineNode, line: number): LineNode {
   switch (node.kind) {
@@ -232,14 +240,6 @@ export function movedLine(node: LineNode, line: number): LineNode {
     case 'timepoint': return new TimepointNode(line, node.text, node.comment, node.marker, node.time, node.label, node.issues);
     case 'unknown': return new UnknownNode(line, node.text, node.comment, node.first, node.rest, node.issues);
   }
-}
-
-class TimepointNode implements TimepointLine {
-  readonly kind = 'timepoint' as const;
-  constructor(
-    readonly line: number, readonly text: string, readonly comment: Token | null, readonly marker: Token,
-    readonly time: TimeSpec | null, readonly label: Token | null, readonly issues: readonly SyntaxIssue[],
-  ) {}
 }
 
 function parseLineUnsafe(text: string, line: number): LineNode {
@@ -724,13 +724,13 @@ interface Located {
   readonly end: number;
 }
 
-/** A token that is its own span (one object, not two): a chunk no comma came before. */
 /** A word value (a mode, a device): made by a constructor, as line nodes are. */
 class WordNode implements WordValue {
   readonly kind = 'word' as const;
   constructor(readonly text: string, readonly span: Span) {}
 }
 
+/** A token that is its own span (one object, not two): a chunk no comma came before. */
 function token(text: string, start: number, end: number): Chunk {
   return new Chunk(text, start, end, false);
 }

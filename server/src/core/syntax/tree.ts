@@ -142,7 +142,7 @@ export interface NoteTree {
 }
 
 export function toRange(line: number, span: Span): Range {
-  return new LineRange(new At(line, span.start), new At(line, span.end));
+  return rangeBetween(line, span.start, line, span.end);
 }
 
 /** A range from one position to another (a range moved with its lines). */
