@@ -34,10 +34,10 @@ export function formatStated(s: StatedValue, unitId?: string): string {
 
 /** The number(s) of a stated value in its canonical unit (or `unitId`), without the unit; null when it has none. */
 export function statedNumber(s: StatedValue, unitId?: string): string | null {
-  const field = fieldById(s.fieldId);
+  const field = s.field;
   const canonical = unitById(s.unit ?? '');
   const target = unitById(unitId ?? s.unit ?? '') ?? canonical;
-  if (s.word !== null || !field || !canonical || !target) return null;
+  if (s.word !== null || !canonical || !target) return null;
   const decimals = Math.max(decimalsFor(target.id, field.decimals), writtenPrecisionIn(s, target));
   const show = (v: number) => formatNumber(convert(v, canonical, target) ?? v, decimals);
   return s.parts ? s.parts.map(show).join('/') : s.value !== null ? show(s.value) : null;
@@ -158,8 +158,8 @@ export function formatAlternative(s: StatedValue): string | null {
   if (!alt || s.word !== null || (s.value === null && !s.parts)) return null;
   // As written: the number the note holds, not one converted back.
   if (written && s.value !== null && s.item.valueKind === 'number' && s.item.value) return `${s.item.value.text} ${displayUnit(alt)}`;
-  const field = fieldById(s.fieldId);
-  if (!field?.units?.includes(alt)) return null;
+  const field = s.field;
+  if (!field.units?.includes(alt)) return null;
   return formatStated(s, alt);
 }
 

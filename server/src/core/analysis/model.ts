@@ -2,6 +2,7 @@
  * What the analysis makes of a note: timepoints with the values in force at each one,
  * where every value came from, and (from the physiology layer) derived values.
  */
+import type { FieldDef } from '../fields/registry';
 import type { SectionId } from '../fields/sections';
 import type { ItemNode, Span } from '../syntax/tree';
 
@@ -18,6 +19,8 @@ export type Origin =
 
 /** A value a note stated, read into the field's canonical unit. */
 export interface StatedValue {
+  readonly field: FieldDef;
+  /** `field.id`. */
   readonly fieldId: string;
   readonly section: SectionId;
   readonly line: number;
@@ -38,6 +41,11 @@ export interface StatedValue {
   readonly unitDoubt: string | null;
   /** False when the value should not feed computations (unreadable unit, doubtful value). */
   readonly usable: boolean;
+  /**
+   * In force only where stated: a measurement (vitals, gases, labs) or a reading off a device in a
+   * setting section (plateau, peak); not carried forward like a setting.
+   */
+  readonly hereOnly: boolean;
 }
 
 /** A value in force at a timepoint. */

@@ -24,7 +24,11 @@ const UNIT_IDS: readonly string[] = UNITS.map((u) => u.id);
 const SECTION_INDEX: ReadonlyMap<string, number> = new Map(SECTION_IDS.map((id, i) => [id, i]));
 const UNIT_INDEX: ReadonlyMap<string, number> = new Map(UNIT_IDS.map((id, i) => [id, i]));
 
-/** The flags of a stated value: bit 0 the unit was implied, bit 1 usable, then the section's index, the read unit's and the doubted unit's (plus 1; 0 for none). */
+/**
+ * The flags of a stated value: bit 0 the unit was implied, bit 1 usable, then the section's index,
+ * the read unit's and the doubted unit's (plus 1; 0 for none), then whether the value is in force
+ * only where stated.
+ */
 const IMPLIED_FLAG = 1;
 const USABLE_FLAG = 2;
 const SECTION_SHIFT = 2;
@@ -32,6 +36,9 @@ const SECTION_MASK = 0x1f;
 const READ_UNIT_SHIFT = 7;
 const DOUBT_SHIFT = 15;
 const UNIT_MASK = 0xff;
+const HERE_ONLY_FLAG = 1 << 23;
+/** By section index: a measuring section, whose values are in force only where stated. */
+const MEASURES: readonly boolean[] = SECTIONS.map((x) => x.kind === 'measure');
 
 // The indexes must fit their bits (a table grown past them would mix the flags up).
 if (SECTION_IDS.length > SECTION_MASK || UNIT_IDS.length >= UNIT_MASK) throw new Error('read-value: too many sections or units for the flags of a stated value');
@@ -45,11 +52,12 @@ function unitCode(id: string | null): number {
 }
 
 /**
- * A stated value, one per value of a note, kept as long as the note: an object of one shape whose
- * field id and canonical unit are read from the item's field (the item knows it) rather than kept.
- * Its number, numbers or word share one field (a value has one of them), and its section, the unit
- * it was read in, the unit it is doubted to be in and its two flags one number (indexes into the
- * tables of sections and units): a big note keeps tens of thousands of these.
+ * A stated value, one per value of a note, kept as long as the note: an object of one shape that
+ * keeps its field (the item knows it too, but the checks and the timeline ask a value for its field
+ * many times, and its item is one more object to reach). Its number, numbers or word share one
+ * slot (a value has one of them), and its section, the unit it was read in, the unit it is doubted
+ * to be in and its three flags one number (indexes into the tables of sections and units): a big
+ * note keeps tens of thousands of these.
  */
 class Stated implements StatedValue {
   /** The canonical number, the canonical numbers of a pair, or the canonical word; null when unread. */
@@ -58,6 +66,7 @@ class Stated implements StatedValue {
   private readonly flags: number;
 
   constructor(
+    readonly field: FieldDef,
     section: SectionId,
     readonly line: number,
     readonly item: ItemNode,
@@ -70,8 +79,9 @@ class Stated implements StatedValue {
     usable: boolean,
   ) {
     this.data = value ?? parts ?? word;
-    this.flags = (unitImplied ? IMPLIED_FLAG : 0) | (usable ? USABLE_FLAG : 0) | (SECTION_INDEX.get(section)! << SECTION_SHIFT) |
-      (unitCode(readUnit) << READ_UNIT_SHIFT) | (unitCode(unitDoubt) << DOUBT_SHIFT);
+    const sectionIndex = SECTION_INDEX.get(section)!;
+    this.flags = (unitImplied ? IMPLIED_FLAG : 0) | (usable ? USABLE_FLAG : 0) | (sectionIndex << SECTION_SHIFT) |
+      (unitCode(readUnit) << READ_UNIT_SHIFT) | (unitCode(unitDoubt) << DOUBT_SHIFT) | (MEASURES[sectionIndex] || field.reading ? HERE_ONLY_FLAG : 0);
   }
 
   get section(): SectionId {
@@ -108,14 +118,17 @@ class Stated implements StatedValue {
     return (this.flags & USABLE_FLAG) !== 0;
   }
 
+  get hereOnly(): boolean {
+    return (this.flags & HERE_ONLY_FLAG) !== 0;
+  }
+
   get fieldId(): string {
-    return this.item.field!.id;
+    return this.field.id;
   }
 
   /** The field's canonical unit; null for a word. */
   get unit(): string | null {
-    const field = this.item.field!;
-    return field.kind === 'word' ? null : field.unit ?? null;
+    return this.field.kind === 'word' ? null : this.field.unit ?? null;
   }
 }
 
@@ -137,9 +150,9 @@ export function readItem(item: ItemNode, section: SectionId, line: number, ctx: 
     const word = canonicalWord(field, item.value!.text);
     if (word === null) {
       issues.push(unknownWordIssue(item, field, line));
-      return new Stated(section, line, item, null, null, null, null, false, null, false);
+      return new Stated(field, section, line, item, null, null, null, null, false, null, false);
     }
-    return new Stated(section, line, item, null, null, word, null, false, null, true);
+    return new Stated(field, section, line, item, null, null, word, null, false, null, true);
   }
 
   if ((field.kind === 'pair') !== (kind === 'pair') || kind === 'word') return null; // shape problems are reported by the syntax checks
@@ -159,7 +172,7 @@ export function readItem(item: ItemNode, section: SectionId, line: number, ctx: 
     for (const u of candidates) if (field.units?.includes(u.id)) { readUnit = u; break; }
     if (!readUnit) {
       issues.push(candidates.length === 0 ? unknownUnitIssue(item, field, line) : unitNotAllowedIssue(item, field, line, candidates, written));
-      return new Stated(section, line, item, null, null, null, null, false, null, false);
+      return new Stated(field, section, line, item, null, null, null, null, false, null, false);
     }
   } else {
     unitImplied = true;
@@ -195,7 +208,7 @@ export function readItem(item: ItemNode, section: SectionId, line: number, ctx: 
       issues.push(otherUnitIssue(item, field, line, readUnit, likely));
     }
   }
-  return new Stated(section, line, item, value, parts, null, readUnit.id, unitImplied, unitDoubt, usable);
+  return new Stated(field, section, line, item, value, parts, null, readUnit.id, unitImplied, unitDoubt, usable);
 }
 
 function unknownWordIssue(item: ItemNode, field: FieldDef, line: number): ReadIssue {

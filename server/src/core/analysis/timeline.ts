@@ -29,8 +29,8 @@
  * they are equal. Not relocated, but read again: a block whose label is its line number (`@`
  * alone: `line 12`), and one whose read issues cannot be moved (see `moveLineNames`).
  */
-import { FIELDS } from '../fields/registry';
-import { SECTIONS, sectionById, type SectionId } from '../fields/sections';
+import { FIELDS, type FieldDef } from '../fields/registry';
+import { sectionById, type SectionId } from '../fields/sections';
 import type { Settings } from '../settings';
 import type { ItemNode, LineNode, NoteTree, SectionLine, Span, TimepointLine } from '../syntax/tree';
 import { barometricFromAltitude } from './ambient';
@@ -334,6 +334,7 @@ class Relocator {
  */
 class MovedValue implements StatedValue {
   constructor(readonly read: StatedValue, readonly line: number) {}
+  get field(): FieldDef { return this.read.field; }
   get fieldId(): string { return this.read.fieldId; }
   get section(): SectionId { return this.read.section; }
   get item(): ItemNode { return this.read.item; }
@@ -345,6 +346,7 @@ class MovedValue implements StatedValue {
   get unitImplied(): boolean { return this.read.unitImplied; }
   get unitDoubt(): string | null { return this.read.unitDoubt; }
   get usable(): boolean { return this.read.usable; }
+  get hereOnly(): boolean { return this.read.hereOnly; }
 }
 
 /** Whether the lines `[start, end)` are the previous run's lines `[start - delta, end - delta)` moved. */
@@ -595,7 +597,7 @@ function duplicates(stated: readonly (StatedValue | undefined)[], from: number, 
       check: 'duplicate-key',
       line: s.line,
       span: s.item.key?.span ?? s.item.span,
-      message: `${s.item.field?.label ?? s.item.keyName} is stated twice ${inHeader ? 'in the header' : 'at this timepoint'}; the later value is used.`,
+      message: `${s.field.label} is stated twice ${inHeader ? 'in the header' : 'at this timepoint'}; the later value is used.`,
       fixes: [],
       related: [{ line: earlier.line, span: earlier.item.span, message: 'first stated here' }],
     });
@@ -612,7 +614,7 @@ function hold(base: HeldMap, stated: readonly (StatedValue | undefined)[], from:
   let next: Map<string, Held> | null = null;
   for (let k = from; k < to; k++) {
     const s = stated[k]!;
-    if (READING_FIELDS.has(s.fieldId)) continue;
+    if (s.field.reading) continue;
     if (next === null) {
       // Copied with forEach: `new Map(base)` goes through an iterator, an object per entry.
       next = new Map();
@@ -749,7 +751,7 @@ class ValuesAt implements ValuesInForce {
     const stated = this.stated;
     for (let i = stated.length - 1; i >= 0; i--) {
       const s = stated[i]!;
-      if (s.fieldId === id && isHereOnly(s)) return s;
+      if (s.fieldId === id && s.hereOnly) return s;
     }
     return undefined;
   }
@@ -758,7 +760,7 @@ class ValuesAt implements ValuesInForce {
     let low = 0;
     let high = 0;
     for (const s of this.stated) {
-      if (!isHereOnly(s)) continue;
+      if (!s.hereOnly) continue;
       const index = FIELD_INDEX.get(s.fieldId)!;
       if (index < MASK_BITS) low |= 1 << index;
       else high |= 1 << (index - MASK_BITS);
@@ -780,7 +782,7 @@ class ValuesAt implements ValuesInForce {
     for (const map of [this.state.patient, this.state.place, this.state.oxygen, this.state.vent]) {
       for (const held of map.values()) full.set(held.stated.fieldId, this.get(held.stated.fieldId)!);
     }
-    for (const s of this.stated) if (isHereOnly(s)) full.set(s.fieldId, this.get(s.fieldId)!);
+    for (const s of this.stated) if (s.hereOnly) full.set(s.fieldId, this.get(s.fieldId)!);
     this.full = full;
     return full;
   }
@@ -800,13 +802,6 @@ const FIELD_INDEX: ReadonlyMap<string, number> = new Map(FIELDS.map((f, i) => [f
 const MASK_BITS = 30;
 if (FIELDS.length > 2 * MASK_BITS) throw new Error('timeline: too many fields for the bits of fields measured at a timepoint');
 
-const READING_FIELDS: ReadonlySet<string> = new Set(FIELDS.filter((f) => f.reading).map((f) => f.id));
-const MEASURE_SECTIONS: ReadonlySet<SectionId> = new Set(SECTIONS.filter((s) => s.kind === 'measure').map((s) => s.id));
-
-/** Measurements and device readings: in force only where stated (the last of a field wins). */
-function isHereOnly(s: StatedValue): boolean {
-  return MEASURE_SECTIONS.has(s.section) || READING_FIELDS.has(s.fieldId);
-}
 
 function freeze(index: number, line: number | null, label: string, startLine: number, time: TimepointTime, stated: readonly StatedValue[], endLine: number, state: CarryState, settings: Settings): Timepoint {
   const values = new ValuesAt(index, state, stated);

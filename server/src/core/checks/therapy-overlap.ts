@@ -5,7 +5,6 @@
  * (`oxygen mask, fio2 0.5` then `vent mode VC, …` asks for the FiO2 on the vent line).
  */
 import type { StatedValue } from '../analysis/model';
-import { fieldById } from '../fields/registry';
 import { formatStated, shortOf } from '../present';
 import { toRange, type LineNode } from '../syntax/tree';
 import { wordList } from '../util/format';
@@ -17,7 +16,7 @@ const OTHER: Readonly<Record<Therapy, Therapy>> = { oxygen: 'vent', vent: 'oxyge
 
 /** A setting the line holds (values measured on the ventilator, such as a plateau, are not settings). */
 function isSetting(s: StatedValue): boolean {
-  return (s.section === 'oxygen' || s.section === 'vent') && fieldById(s.fieldId)?.reading !== true;
+  return (s.section === 'oxygen' || s.section === 'vent') && s.field.reading !== true;
 }
 
 /** `device (mask) and FiO2 0.50`: the settings of one line, as a message names them. */

@@ -5,7 +5,7 @@
  */
 import { softBoundsAt, unitsWithin, within } from '../analysis/bounds';
 import type { StatedValue } from '../analysis/model';
-import { fieldById, type Bounds, type FieldDef } from '../fields/registry';
+import { type Bounds, type FieldDef } from '../fields/registry';
 import { displayUnit } from '../analysis/read-value';
 import { convert, unitById, type UnitDef } from '../fields/units';
 import { toRange } from '../syntax/tree';
@@ -92,9 +92,9 @@ export const impossibleValue = defineCheck({
   },
   source: 'field registry bounds; each field names its source (mostly common practice, no source)',
   ...valueCheck((ctx, stated, barometricMmhg) => {
-    const field = stated.item.field;
+    const field = stated.field;
     // Most values are within bounds: asked first, the rest only of the few that are not.
-    if (!field?.hard || !outOfBounds(stated, field.hard)) return;
+    if (!field.hard || !outOfBounds(stated, field.hard)) return;
     if (OWN_CHECKS.has(field.id) || stated.readUnit === null || stated.unitDoubt) return;
     if (SATURATIONS.has(field.id) && noneNegative(stated)) return;
     const fix = otherUnitFix(field, stated, barometricMmhg);
@@ -135,9 +135,9 @@ export const unusualValue = defineCheck({
   },
   source: 'field registry bounds; each field names its source (mostly common practice, no source)',
   ...valueCheck((ctx, stated, barometricMmhg) => {
-    const field = stated.item.field;
+    const field = stated.field;
     // Most values are within the usual bounds, which a low barometric pressure only widens: asked first.
-    if (!field?.soft || !outOfBounds(stated, field.soft)) return;
+    if (!field.soft || !outOfBounds(stated, field.soft)) return;
     if (OWN_CHECKS.has(field.id) || !stated.usable || stated.readUnit === null || stated.unitDoubt) return;
     if (field.hard && outOfBounds(stated, field.hard)) return;
     const soft = softBoundsAt(field, barometricMmhg);
@@ -165,7 +165,7 @@ export const saturationAbove100 = defineCheck({
     if (stated.value === null || stated.value <= 100 || !SATURATIONS.has(stated.fieldId)) return;
     ctx.report({
       range: toRange(stated.line, stated.item.value?.span ?? stated.item.span),
-      message: `${fieldById(stated.fieldId)?.label ?? stated.fieldId} ${stated.item.value?.text ?? ''} % is above 100 %, which is impossible.`,
+      message: `${stated.field.label ?? stated.fieldId} ${stated.item.value?.text ?? ''} % is above 100 %, which is impossible.`,
     });
   }, false),
 });

@@ -337,15 +337,15 @@ function defaultTermName(fieldId: string): string {
 }
 
 function termOf(input: InputValue, name?: string): Term {
-  // The item read knows its field (the registry's row): no lookup by id.
-  const field = input.stated.item.field ?? fieldById(input.stated.fieldId);
-  const fieldId = field?.id ?? input.stated.fieldId;
+  // The value knows its field (the registry's row): no lookup by id.
+  const field = input.stated.field;
+  const fieldId = field.id;
   const unit = input.stated.unit === null || input.stated.unit === 'fraction' || input.stated.unit === 'ph' ? '' : displayUnit(input.stated.unit);
   return {
-    name: name ?? field?.short ?? field?.aliases[0] ?? fieldId,
+    name: name ?? field.short ?? field.aliases[0] ?? fieldId,
     value: input.stated.value ?? NaN,
     unit,
-    decimals: field?.decimals ?? 1,
+    decimals: field.decimals,
     origin: input.origin,
     fieldId,
   };

@@ -12,7 +12,7 @@
 import type { NoteResult } from '../check-note';
 import type { StatedValue } from '../analysis/model';
 import { checkByCodeOrAlias } from '../checks/registry';
-import { fieldById, type FieldDef } from '../fields/registry';
+import { type FieldDef } from '../fields/registry';
 import { comparePositions, type Finding, type Fix, type Range, type TextEdit } from '../types';
 import { allStated, isValidPosition, itemAt, lineAt, statedOnLine } from './locate';
 import { parseLine } from '../syntax/parser';
@@ -62,7 +62,7 @@ function valueActions(result: NoteResult, range: Range): ActionInfo[] {
 
   if (hit) {
     const stated = statedOnLine(result, line).find((s) => s.item === hit.item) ?? null;
-    const field = stated ? fieldById(stated.fieldId) : undefined;
+    const field = stated?.field;
     if (stated && field) {
       onGas ||= field.dimension === 'gas-pressure';
       if (hit.item.implied === 'shorthand') {
@@ -77,7 +77,7 @@ function valueActions(result: NoteResult, range: Range): ActionInfo[] {
   if (onGas) {
     const stated = allStated(result);
     for (const to of ['mmHg', 'kPa'] as const) {
-      if (!stated.some((s) => fieldById(s.fieldId)?.dimension === 'gas-pressure' && s.readUnit !== null && s.readUnit !== to && (fieldById(s.fieldId)?.units?.includes(to) ?? false))) continue;
+      if (!stated.some((s) => s.field.dimension === 'gas-pressure' && s.readUnit !== null && s.readUnit !== to && (s.field.units?.includes(to) ?? false))) continue;
       const edits = noteConversion(result, to);
       if (edits.length > 0) out.push({ title: `Convert every gas pressure in the note to ${to}`, kind: 'refactor.rewrite', edits });
     }
@@ -100,8 +100,8 @@ function keyOf(s: StatedValue): string {
 
 function conversionAction(s: StatedValue): ActionInfo[] {
   const to = otherUnit(s);
-  const field = fieldById(s.fieldId);
-  if (!to || !field || s.unitDoubt || !s.usable) return [];
+  const field = s.field;
+  if (!to || s.unitDoubt || !s.usable) return [];
   const edits = itemConversionEdits(s.line, s, to);
   const number = numberIn(s, field, to);
   if (!edits || number === null) return [];

@@ -11,7 +11,7 @@ import type { StatedValue, Timepoint } from '../analysis/model';
 import { displayUnit } from '../analysis/read-value';
 import type { DerivedValue, TimepointDerivation } from '../derive/model';
 import { derivedDef } from '../derive/registry';
-import { fieldById, fieldFor, fieldsInSection, type FieldDef } from '../fields/registry';
+import { fieldFor, fieldsInSection, type FieldDef } from '../fields/registry';
 import { sectionById, type SectionId } from '../fields/sections';
 import { describeInput, formatAlternative, formatStated, statedInKpa } from '../present';
 import type { SectionLine, TimepointLine } from '../syntax/tree';
@@ -168,7 +168,7 @@ function originText(result: NoteResult, s: StatedValue): string {
  * timepoint ends (PN311): it is neither in force there nor carried.
  */
 function endedText(tp: Timepoint, s: StatedValue): string {
-  if ((s.section !== 'oxygen' && s.section !== 'vent') || fieldById(s.fieldId)?.reading === true) return '';
+  if ((s.section !== 'oxygen' && s.section !== 'vent') || s.field.reading === true) return '';
   const other = s.section === 'oxygen' ? 'vent' : 'oxygen';
   let ender = -1;
   for (const t of tp.stated) if (t.section === other && t.line > s.line) ender = Math.max(ender, t.line);

@@ -10,7 +10,7 @@
 import type { NoteResult } from '../check-note';
 import type { StatedValue } from '../analysis/model';
 import { displayUnit } from '../analysis/read-value';
-import { fieldById, type FieldDef } from '../fields/registry';
+import { type FieldDef } from '../fields/registry';
 import { convert, unitById, unitsForSpelling, type UnitDef } from '../fields/units';
 import { decimalsFor } from '../present';
 import type { ItemNode, LineNode, SectionLine } from '../syntax/tree';
@@ -27,8 +27,8 @@ const PAIRS: readonly (readonly [string, string])[] = [['mmHg', 'kPa'], ['fracti
 
 /** The unit a stated value can be rewritten in, other than the one it was read in. */
 export function otherUnit(s: StatedValue): string | null {
-  const field = fieldById(s.fieldId);
-  if (!field || !s.readUnit || s.value === null || field.kind !== 'number') return null;
+  const field = s.field;
+  if (!s.readUnit || s.value === null || field.kind !== 'number') return null;
   for (const [a, b] of PAIRS) {
     const other = s.readUnit === a ? b : s.readUnit === b ? a : null;
     if (other && field.units?.includes(a) && field.units.includes(b)) return other;
@@ -104,10 +104,10 @@ function unitReadsAs(text: string, field: FieldDef, id: string): boolean {
  * its unit. Null when the value cannot be converted.
  */
 export function itemConversionEdits(line: number, s: StatedValue, to: string): TextEdit[] | null {
-  const field = fieldById(s.fieldId);
+  const field = s.field;
   const item = s.item;
   const value = item.value;
-  if (!field || !value || value.kind !== 'number' || item.implied === 'shorthand') return null;
+  if (!value || value.kind !== 'number' || item.implied === 'shorthand') return null;
   const number = numberIn(s, field, to);
   if (number === null) return null;
   const edits: TextEdit[] = [{ range: lineRange(line, value.span.start, value.span.end), newText: number }];
@@ -146,8 +146,8 @@ export function shorthandConversionEdits(sh: ShorthandPressures, to: GasUnit): T
   const line = sh.node.line;
   const edits: TextEdit[] = [];
   for (const s of sh.parts) {
-    const field = fieldById(s.fieldId);
-    if (!field || !s.readUnit || !s.item.value) return null;
+    const field = s.field;
+    if (!s.readUnit || !s.item.value) return null;
     const number = numberIn(s, field, to);
     if (number === null) return null;
     edits.push({ range: lineRange(line, s.item.value.span.start, s.item.value.span.end), newText: number });
@@ -229,7 +229,7 @@ export function convertNoteUnits(result: NoteResult, to: GasUnit): TextEdit[] {
 
   const doneShorthand = new Set<number>();
   for (const s of allStated(result)) {
-    const field = fieldById(s.fieldId);
+    const field = s.field;
     if (!isGasPressure(field) || !s.readUnit || s.value === null || !s.item.value) continue;
     if (s.item.implied === 'shorthand') {
       if (doneShorthand.has(s.line)) continue;
@@ -281,17 +281,16 @@ function shorthandEdits(sh: ShorthandPressures, to: GasUnit, bareAfter: GasUnit 
   const line = sh.node.line;
   const readUnit = sh.parts[0]?.readUnit ?? null;
   if (!readUnit || sh.parts.some((p) => p.readUnit !== readUnit || p.value === null)) return [];
-  const fields = sh.parts.map((p) => fieldById(p.fieldId));
-  if (sh.parts.some((p, i) => !fields[i] || !ordinary(p, fields[i]!))) return keepAsRead(line, sh.end, sh.unit !== null, readUnit, bareAfter);
+  if (sh.parts.some((p) => !ordinary(p, p.field))) return keepAsRead(line, sh.end, sh.unit !== null, readUnit, bareAfter);
   const edits: TextEdit[] = [];
   if (readUnit !== to) {
-    for (const [i, s] of sh.parts.entries()) {
-      const number = numberIn(s, fields[i]!, to);
+    for (const s of sh.parts) {
+      const number = numberIn(s, s.field, to);
       if (number === null || !s.item.value) return [];
       edits.push({ range: lineRange(line, s.item.value.span.start, s.item.value.span.end), newText: number });
     }
   }
-  const field = fields[0];
+  const field = sh.parts[0]?.field;
   if (sh.unit) {
     if (!field || !unitReadsAs(sh.unit.text, field, to)) edits.push({ range: lineRange(line, sh.unit.span.start, sh.unit.span.end), newText: to });
   } else if (bareAfter !== to) {
