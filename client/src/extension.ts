@@ -31,11 +31,13 @@ export async function activate(context: vscode.ExtensionContext): Promise<void> 
     const c = client;
     return c && c.isRunning() ? (method, params) => c.sendRequest(method, params) : null;
   };
-  // Settles when the first start of the server has succeeded or failed.
-  let firstStart: Promise<unknown> = Promise.resolve();
-  // The trend view may ask before then (a view restored after a reload): it waits for the start.
+  // Settles when the latest start of the server (the first, or a restart on request) has
+  // succeeded or failed.
+  let starting: Promise<unknown> = Promise.resolve();
+  // The trend view may ask before then (a view restored after a reload, a note analysed while the
+  // server restarts): it waits for the start instead of saying the server is not running.
   const trends = new TrendView(context.extensionUri, async () => {
-    await firstStart;
+    await starting;
     return send();
   });
   const status = new TimepointStatus(send);
@@ -47,7 +49,11 @@ export async function activate(context: vscode.ExtensionContext): Promise<void> 
   context.subscriptions.push(vscode.window.registerWebviewPanelSerializer(TREND_VIEW_TYPE, trends));
 
   context.subscriptions.push(
-    vscode.commands.registerCommand('pneumark.restartServer', () => restartServer(client, crashes, output)),
+    vscode.commands.registerCommand('pneumark.restartServer', () => {
+      const restarted = restartServer(client, crashes, output);
+      starting = restarted;
+      return restarted;
+    }),
     vscode.commands.registerCommand('pneumark.convertNoteUnits', () => convertNoteUnits(send())),
     vscode.commands.registerCommand('pneumark.insertTimepoint', () => insertTimepoint()),
     vscode.commands.registerCommand('pneumark.showTrends', (resource?: unknown) => trends.show(noteFor(resource))),
@@ -60,7 +66,7 @@ export async function activate(context: vscode.ExtensionContext): Promise<void> 
     status.noteAnalysed(p.uri);
   });
   const started = client.start();
-  firstStart = started.catch(() => undefined);
+  starting = started.catch(() => undefined);
   try {
     await started;
   } catch (error) {

@@ -193,7 +193,7 @@ export class TrendView implements vscode.Disposable, vscode.WebviewPanelSerializ
       return;
     }
     try {
-      const result = await send<TrendsResult | null>(TRENDS_REQUEST, { uri: key } satisfies TrendsParams);
+      const result = await this.ask(send, key);
       if (generation !== this.generation || this.uri?.toString() !== key) return;
       if (result === null && this.last?.uri === key && !this.isOpen(uri)) {
         await this.post({ type: 'trends', points: this.last.points, note, uri: key, closed: true });
@@ -205,6 +205,22 @@ export class TrendView implements vscode.Disposable, vscode.WebviewPanelSerializ
     } catch (error) {
       if (generation !== this.generation) return;
       await this.post({ type: 'error', message: error instanceof Error ? error.message : String(error) });
+    }
+  }
+
+  /**
+   * The trends of a note from the server. A request that fails is sent once more to the server
+   * running by then (`send` waits for a start under way): a request caught by a restart of the
+   * server fails as the old one stops, and the new one answers it.
+   */
+  private async ask(send: Requester, uri: string): Promise<TrendsResult | null> {
+    const params: TrendsParams = { uri };
+    try {
+      return await send<TrendsResult | null>(TRENDS_REQUEST, params);
+    } catch (error) {
+      const again = await this.send();
+      if (!again) throw error;
+      return await again<TrendsResult | null>(TRENDS_REQUEST, params);
     }
   }
 

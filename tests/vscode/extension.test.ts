@@ -1,7 +1,7 @@
 // The extension's activation as a whole, with stand-ins for VS Code (fake-vscode.ts) and the
 // language client: a server that cannot start, shutting down, what is handed to the client.
 import { beforeEach, describe, expect, it, vi } from 'vitest';
-import { FakeWebviewPanel, resetFake, state, Uri } from './fake-vscode';
+import { FakeWebviewPanel, openEditor, resetFake, state, Uri } from './fake-vscode';
 
 vi.mock('vscode', async () => (await import('./fake-vscode')).vscodeModule);
 
@@ -94,6 +94,55 @@ describe('activation', () => {
     await vi.waitFor(() => expect(restored.postedOf('trends')).toHaveLength(1));
     expect(restored.postedOf('trends')[0]).toMatchObject({ uri: 'file:///work/a.pneu', note: 'a.pneu', closed: false, points: [{ values: { pao2: { value: 70, unit: 'mmHg' } } }] });
     expect(restored.postedOf('error')).toEqual([]);
+    await deactivate();
+  });
+
+  it('keeps an open trend view waiting while the server restarts on request, and never says it is not running', async () => {
+    await activate(context() as never);
+    const editor = openEditor('/work/a.pneu', '@ 08:00\nabg 7.30/40/70/24');
+    state.commands.get('pneumark.showTrends')!(editor.document.uri);
+    const view = state.panels[0]!;
+    await vi.waitFor(() => expect(view.postedOf('trends')).toHaveLength(1));
+    let started!: () => void;
+    behaviour.startsWhen = new Promise<void>((resolve) => { started = resolve; });
+    const restart = state.commands.get('pneumark.restartServer')!() as Promise<boolean>;
+    // The note is analysed again while the old server has stopped and the new one starts: the
+    // view asks the new one once it runs.
+    clients[0]!.notifications.get('pneumark/analysed')!({ uri: 'file:///work/a.pneu', version: 2, millis: 1 });
+    await new Promise((r) => setTimeout(r, 400));
+    expect(clients[0]!.isRunning()).toBe(false);
+    expect(view.postedOf('error')).toEqual([]);
+    started();
+    await expect(restart).resolves.toBe(true);
+    await vi.waitFor(() => expect(view.postedOf('trends')).toHaveLength(2));
+    expect(view.postedOf('error')).toEqual([]);
+    await deactivate();
+  });
+
+  it('asks the restarted server again for trends that the stopping one failed to give', async () => {
+    await activate(context() as never);
+    const editor = openEditor('/work/a.pneu', '@ 08:00\nabg 7.30/40/70/24');
+    const client = clients[0]!;
+    // The first request is caught by a restart: it fails as the old server stops.
+    const answer = client.sendRequest.bind(client);
+    let calls = 0;
+    let started!: () => void;
+    let restart: Promise<boolean> | null = null;
+    client.sendRequest = async (method, params) => {
+      if (++calls === 1) {
+        behaviour.startsWhen = new Promise<void>((resolve) => { started = resolve; });
+        restart = state.commands.get('pneumark.restartServer')!() as Promise<boolean>;
+        setTimeout(() => started(), 50);
+        throw new Error('Client is not running');
+      }
+      return answer(method, params);
+    };
+    state.commands.get('pneumark.showTrends')!(editor.document.uri);
+    const view = state.panels[0]!;
+    await vi.waitFor(() => expect(view.postedOf('trends')).toHaveLength(1));
+    expect(calls).toBe(2);
+    expect(view.postedOf('error')).toEqual([]);
+    await expect(restart).resolves.toBe(true);
     await deactivate();
   });
 
