@@ -2,11 +2,14 @@
 // ambiguity (one field per key within a section) and sane bounds.
 import { describe, expect, it } from 'vitest';
 import { z } from 'zod';
-import { FIELDS, fieldFor, keysInSection } from '../../server/src/core/fields/registry';
+import { FIELDS, fieldById, fieldFor, keysInSection, loincCodesOf, loincFor, type LoincCode } from '../../server/src/core/fields/registry';
+import type { SectionId } from '../../server/src/core/fields/sections';
 import { SECTIONS } from '../../server/src/core/fields/sections';
 import { UNITS, unitById, unitsForSpelling } from '../../server/src/core/fields/units';
 
 const bounds = z.object({ min: z.number().optional(), max: z.number().optional() }).strict();
+const loincCode = z.object({ code: z.string().regex(/^\d{1,6}-\d$/), display: z.string().min(3), fromMemory: z.boolean().optional(), source: z.string().regex(/ — https:\/\/\S+$/).optional() }).strict()
+  .refine((c) => !(c.fromMemory && c.source), 'a code read on a page is not from memory');
 const fieldSchema = z
   .object({
     id: z.string().regex(/^[a-z][a-z0-9_]*$/),
@@ -24,8 +27,9 @@ const fieldSchema = z
     soft: bounds.optional(),
     doubt: bounds.optional(),
     boundsSource: z.string().min(10).optional(),
-    loinc: z.object({ code: z.string().regex(/^\d{1,6}-\d$/), display: z.string().min(3), fromMemory: z.boolean().optional() }).strict().optional(),
-    loincBySection: z.record(z.string(), z.object({ code: z.string().regex(/^\d{1,6}-\d$/), display: z.string().min(3), fromMemory: z.boolean().optional() }).strict()).optional(),
+    loinc: loincCode.optional(),
+    loincBySection: z.record(z.string(), loincCode).optional(),
+    loincByKey: z.record(z.string(), loincCode).optional(),
     words: z.record(z.string(), z.string()).optional(),
     openWords: z.boolean().optional(),
     reading: z.boolean().optional(),
@@ -87,6 +91,109 @@ describe('field registry', () => {
     const expected: Record<string, string> = { ph: '2744-1', paco2: '2019-8', pao2: '2703-7', hco3: '1960-4', base_excess: '1925-7', sao2: '2708-6', spo2: '59408-5', fio2: '3150-0', o2_flow: '3151-8', rr: '9279-1', hr: '8867-4', peep: '20077-4', vt: '20112-9', temp: '8310-5' };
     for (const [id, code] of Object.entries(expected)) expect(FIELDS.find((f) => f.id === id)?.loinc?.code, id).toBe(code);
     expect(FIELDS.find((f) => f.id === 'barometric')?.loinc, 'no code is known for barometric pressure: none is invented').toBeUndefined();
+  });
+
+  it('keys with a code of their own are keys of the field, and sections with one are sections of the field', () => {
+    for (const f of FIELDS) {
+      for (const key of Object.keys(f.loincByKey ?? {})) expect(f.aliases, `${f.id}: ${key}`).toContain(key);
+      for (const section of Object.keys(f.loincBySection ?? {})) expect(f.sections, `${f.id}: ${section}`).toContain(section);
+    }
+  });
+
+  it('one code has one name wherever it is used', () => {
+    const names = new Map<string, string>();
+    for (const f of FIELDS) for (const c of loincCodesOf(f)) {
+      expect(names.get(c.code) ?? c.display, c.code).toBe(c.display);
+      names.set(c.code, c.display);
+    }
+  });
+});
+
+/**
+ * Each LOINC code checked on a page that shows the code with its LOINC name. The page stands
+ * beside each check (title, address, version or year shown); the registry's `source` must name the
+ * same address. Looked up while writing; the tool itself fetches nothing.
+ */
+describe('LOINC codes checked on a page', () => {
+  const at = (id: string, section: SectionId, key: string | null = null): LoincCode | undefined => loincFor(fieldById(id)!, section, key);
+  const expectCode = (loinc: LoincCode | undefined, code: string, display: string, address: string) => {
+    expect(loinc?.code).toBe(code);
+    expect(loinc?.display).toBe(display);
+    expect(loinc?.fromMemory).toBeUndefined();
+    expect(loinc?.source, code).toContain(address);
+  };
+
+  it('patient and vital signs', () => {
+    // HL7 Terminology (THO) 7.0.1, ValueSet LOINCObservationActContextAgeDefinitionCode (value set of 2010-03-16): 30525-0 Age
+    expectCode(at('age', 'patient'), '30525-0', 'Age', 'https://build.fhir.org/ig/HL7/UTG/ValueSet-v3-LOINCObservationActContextAgeDefinitionCode.json.html');
+    // FHIR 6.0.0-ballot2 (2024), ValueSet observation-vitalsign-bppanel: 85354-9 is the panel "with all children optional"
+    // (35094-2 is "Blood pressure panel"; the registry's name was wrong)
+    expectCode(at('bp', 'vitals'), '85354-9', 'Blood pressure panel with all children optional', 'https://hl7.org/fhir/6.0.0-ballot2/valueset-observation-vitalsign-bppanel.html');
+    // FHIR R5 5.0.0, Observation example satO2: 2708-6 and 59408-5 with their names
+    expectCode(at('spo2', 'vitals'), '59408-5', 'Oxygen saturation in Arterial blood by Pulse oximetry', 'https://hl7.org/FHIR/observation-example-satO2.html');
+    expectCode(at('sao2', 'abg'), '2708-6', 'Oxygen saturation in Arterial blood', 'https://hl7.org/FHIR/observation-example-satO2.html');
+  });
+
+  it('ventilator settings', () => {
+    // HL7 SANER IG 1.0.0 (2021), ValueSet Ventilator Observations: 19994-3, 20077-4, 20079-0 with their names
+    // (LOINC now names 19994-3 "Oxygen/Total gas", the registry had the older "Oxygen/Inspired gas";
+    // 20077-4 is the PEEP setting, the registry had another name)
+    const saner = 'https://hl7.org/fhir/uv/saner/ValueSet-VentilatorObservations.json.html';
+    expectCode(at('fio2', 'vent'), '19994-3', 'Oxygen/Total gas setting [Volume Fraction] Ventilator', saner);
+    expectCode(at('peep', 'vent'), '20077-4', 'Positive end expiratory pressure setting Ventilator', saner);
+    expectCode(at('pressure_support', 'vent'), '20079-0', 'Pressure support setting Ventilator', saner);
+  });
+
+  it('blood gases', () => {
+    // HL7 MCC eCare Plan IG 1.0.0, Observation ph-lab-observation: 2744-1 pH of Arterial blood
+    expectCode(at('ph', 'abg'), '2744-1', 'pH of Arterial blood', 'https://www.hl7.org/fhir/us/mcc/Observation-ph-lab-observation.xml.html');
+    // HL7 MCC eCare Plan IG 1.0.0, Observation pO2-arterial-observation: 2703-7
+    expectCode(at('pao2', 'abg'), '2703-7', 'Oxygen [Partial pressure] in Arterial blood', 'https://build.fhir.org/ig/HL7/fhir-us-mcc/Observation-pO2-arterial-observation.json.html');
+    // LOINC term page 2711-0, LOINC 2.78: long common name "Oxygen saturation in Venous blood", system BldV
+    expectCode(at('svo2', 'vbg'), '2711-0', 'Oxygen saturation in Venous blood', 'https://cdn.loinc.org/2711-0');
+  });
+
+  it('electrolytes: serum or plasma on a labs line, whole blood on a blood gas line', () => {
+    // LOINC group LG11363-5, LOINC 2.73: 2947-0 Sodium [Moles/volume] in Blood, 2951-2 ... in Serum or Plasma
+    const sodium = 'https://loinc.org/LG11363-5/';
+    expectCode(at('na', 'labs'), '2951-2', 'Sodium [Moles/volume] in Serum or Plasma', sodium);
+    for (const s of ['abg', 'vbg'] as const) expectCode(at('na', s), '2947-0', 'Sodium [Moles/volume] in Blood', sodium);
+    // CH LAB-Order (R4) 2.0.0 (2024), ValueSet top-2000-lab-observations-si: 2823-3 Potassium [Moles/volume] in Serum or Plasma
+    expectCode(at('k', 'labs'), '2823-3', 'Potassium [Moles/volume] in Serum or Plasma', 'https://build.fhir.org/ig/hl7ch/ch-lab-order/ValueSet-top-2000-lab-observations-si.html');
+    // HL7 PDDI CDS IG 1.0.0, ValueSet valueset-potassium-LOINC: 6298-4 Potassium [Moles/volume] in Blood (the list runs past
+    // the stored copy of the page; read in full in the guide's source, HL7/PDDI-CDS input/resources/valueset-potassium-LOINC.xml)
+    for (const s of ['abg', 'vbg'] as const) expectCode(at('k', s), '6298-4', 'Potassium [Moles/volume] in Blood', 'https://hl7.org/fhir/uv/pddi/en/ValueSet-valueset-potassium-LOINC.html');
+    // CH LAB-Order (R4) 3.0.0 ci-build, ActivityDefinition procedure-chloride-serum: 2075-0 Chloride [Moles/volume] in Serum or Plasma
+    expectCode(at('cl', 'labs'), '2075-0', 'Chloride [Moles/volume] in Serum or Plasma', 'https://build.fhir.org/ig/hl7ch/ch-lab-order/ActivityDefinition-procedure-chloride-serum.html');
+    // CH LAB-Order (R4) 2.0.0, ObservationDefinition observation-serum-chloride: 2069-3 Chloride [Moles/volume] in Blood
+    for (const s of ['abg', 'vbg'] as const) expectCode(at('cl', s), '2069-3', 'Chloride [Moles/volume] in Blood', 'https://build.fhir.org/ig/hl7ch/ch-lab-order/ObservationDefinition-observation-serum-chloride.html');
+  });
+
+  it('bicarbonate and total CO2 from the laboratory', () => {
+    // LOINC term page 1963-8, LOINC 2.80: "Bicarbonate [Moles/volume] in Serum or Plasma" (changed from Ser to Ser/Plas in 2.73)
+    expectCode(at('hco3_serum', 'labs'), '1963-8', 'Bicarbonate [Moles/volume] in Serum or Plasma', 'https://cdn.loinc.org/1963-8');
+    // HL7 US Core 3.1.0, Observation serum-co2: LOINC 2028-9 = "Carbon dioxide, total [Moles/volume] in Serum or Plasma"
+    expectCode(at('hco3_serum', 'labs', 'tco2'), '2028-9', 'Carbon dioxide, total [Moles/volume] in Serum or Plasma', 'https://hl7.org/fhir/us/core/STU3.1/Observation-serum-co2.html');
+  });
+
+  it('glucose in mmol/L: Moles/volume codes (2345-7 is Mass/volume and was dropped)', () => {
+    // LOINC group LG7967-5 (https://loinc.org/LG7967-5/, LOINC 2.67) lists 2345-7 as Glucose [Mass/volume] in Serum or Plasma
+    expect(loincCodesOf(fieldById('glucose')!).map((c) => c.code)).not.toContain('2345-7');
+    // HL7 LIVD IG 1.0.0-ballot (2024), ValueSet testcode-mappings-livd (LOINC 2.65): 14749-6 Glucose [Moles/volume] in Serum or Plasma
+    expectCode(at('glucose', 'labs'), '14749-6', 'Glucose [Moles/volume] in Serum or Plasma', 'https://hl7.org/fhir/uv/livd/2024Jan/ValueSet-testcode-mappings-livd.html');
+    // FHIR R4 ballot 3 (2018), Observation example f001-glucose: LOINC 15074-8 = "Glucose [Moles/volume] in Blood"
+    for (const s of ['abg', 'vbg'] as const) expectCode(at('glucose', s), '15074-8', 'Glucose [Moles/volume] in Blood', 'https://hl7.org/fhir/2018Dec/observation-example-f001-glucose.html');
+  });
+
+  it('haemoglobin', () => {
+    // CH LAB-Order (R4) 2.0.0 (2024), ValueSet top-2000-lab-observations-si: 718-7 Hemoglobin [Mass/volume] in Blood
+    expectCode(at('hb', 'labs'), '718-7', 'Hemoglobin [Mass/volume] in Blood', 'https://build.fhir.org/ig/hl7ch/ch-lab-order/ValueSet-top-2000-lab-observations-si.html');
+  });
+
+  it('codes not found on such a page stay marked as recalled', () => {
+    // Searched for and not found on a page that shows the code with its name: kept, marked from memory.
+    const recalled = FIELDS.flatMap((f) => loincCodesOf(f).filter((c) => c.fromMemory).map((c) => `${f.id} ${c.code}`));
+    expect(recalled).toEqual(['ph_venous 2746-6', 'pvco2 2021-4', 'pvo2 2705-2', 'hco3_venous 14627-4', 'lactate 32693-4']);
   });
 });
 

@@ -5,7 +5,7 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { anchorProblem, observationCategory, toFhirBundle, ucumCode, type FhirBundle, type FhirObservation, type FhirOptions } from '../../server/src/core/export';
 import { fhirLoinc, isObservedField, loincMismatch } from '../../server/src/core/export/fhir';
 import type { SectionId } from '../../server/src/core/fields/sections';
-import { FIELDS } from '../../server/src/core/fields/registry';
+import { FIELDS, fieldById, loincCodesOf } from '../../server/src/core/fields/registry';
 import { checked, fhirValidator, samples } from './helpers';
 
 const ANCHOR = '2000-01-01T00:00:00+01:00';
@@ -106,7 +106,7 @@ describe('observations', () => {
 
   it('no other derived value, no subject, no identifier', () => {
     const codes = new Set(observations(bundle).map((o) => o.code.coding?.[0]?.code).filter((c) => c !== undefined));
-    const registry = new Set(FIELDS.flatMap((f) => [...(f.loinc ? [f.loinc.code] : []), ...Object.values(f.loincBySection ?? {}).map((l) => l.code)]));
+    const registry = new Set(FIELDS.flatMap((f) => loincCodesOf(f).map((l) => l.code)));
     for (const code of codes) expect(registry.has(code!) || code === '50984-4', code).toBe(true);
     for (const o of observations(bundle)) {
       expect(o).not.toHaveProperty('subject');
@@ -141,25 +141,38 @@ describe('observations', () => {
 describe('codes that fit the value', () => {
   const codeOf = (b: FhirBundle, id: string) => byId(b, id)?.code;
 
-  it('glucose in mmol/L never carries the registry\'s [Mass/volume] code (2345-7); it is exported with its label alone', () => {
-    const b = toFhirBundle('a.pneu', checked('@ day 1 08:00\nlabs glucose 5.5'), noAnchor);
+  it('glucose in mmol/L carries a [Moles/volume] code: serum or plasma on a labs line (14749-6), blood on a blood gas line (15074-8)', () => {
+    const b = toFhirBundle('a.pneu', checked('@ day 1 08:00\nlabs glucose 5.5\n@ +1h\nabg 7.40/40/90/24, glucose 6.1\n@ +1h\nvbg 7.35/46/40/25, glucose 6.4'), noAnchor);
     const glucose = byId(b, 'obs-0-glucose')!;
-    expect(glucose.code).toEqual({ text: 'Glucose' });
+    expect(glucose.code).toEqual({ coding: [{ system: 'http://loinc.org', code: '14749-6', display: 'Glucose [Moles/volume] in Serum or Plasma' }], text: 'Glucose' });
     expect(glucose.valueQuantity).toEqual({ value: 5.5, unit: 'mmol/L', system: 'http://unitsofmeasure.org', code: 'mmol/L' });
+    expect(codeOf(b, 'obs-1-glucose')?.coding).toEqual([{ system: 'http://loinc.org', code: '15074-8', display: 'Glucose [Moles/volume] in Blood' }]);
+    expect(codeOf(b, 'obs-2-glucose')?.coding?.map((c) => c.code)).toEqual(['15074-8']);
     expect(validator.validate(b, true)).toEqual([]);
   });
 
-  it('a venous base excess is not coded as arterial, an electrolyte from a blood gas not as serum or plasma', () => {
-    const b = toFhirBundle('a.pneu', checked('@ day 1 08:00\nvbg 7.30/50/40/24, be -4, na 135, k 4.4\n@ +1h\nabg 7.35/40/90/22, be -2, cl 101\nlabs na 140, k 4.1'), noAnchor);
+  it('a venous base excess is not coded as arterial; an electrolyte from a blood gas is coded as whole blood, from the laboratory as serum or plasma', () => {
+    const b = toFhirBundle('a.pneu', checked('@ day 1 08:00\nvbg 7.30/50/40/24, be -4, na 135, k 4.4\n@ +1h\nabg 7.35/40/90/22, be -2, cl 101\n@ +1h\nlabs na 140, k 4.1, cl 103'), noAnchor);
     expect(codeOf(b, 'obs-0-base-excess')).toEqual({ text: 'Base excess' });
     expect(codeOf(b, 'obs-1-base-excess')?.coding?.map((c) => c.code)).toEqual(['1925-7']); // arterial, on an abg line
-    expect(codeOf(b, 'obs-0-na')).toEqual({ text: 'Sodium' });
-    expect(codeOf(b, 'obs-0-k')).toEqual({ text: 'Potassium' });
-    expect(codeOf(b, 'obs-1-cl')).toEqual({ text: 'Chloride' });
-    expect(codeOf(b, 'obs-1-na')?.coding?.map((c) => c.code)).toEqual(['2951-2']); // labs: serum or plasma
-    expect(codeOf(b, 'obs-1-k')?.coding?.map((c) => c.code)).toEqual(['2823-3']);
+    expect(codeOf(b, 'obs-0-na')?.coding).toEqual([{ system: 'http://loinc.org', code: '2947-0', display: 'Sodium [Moles/volume] in Blood' }]); // vbg: whole blood
+    expect(codeOf(b, 'obs-0-k')?.coding?.map((c) => c.code)).toEqual(['6298-4']);
+    expect(codeOf(b, 'obs-1-cl')?.coding?.map((c) => c.code)).toEqual(['2069-3']); // abg: whole blood
+    expect(codeOf(b, 'obs-2-na')?.coding).toEqual([{ system: 'http://loinc.org', code: '2951-2', display: 'Sodium [Moles/volume] in Serum or Plasma' }]); // labs: serum or plasma
+    expect(codeOf(b, 'obs-2-k')?.coding?.map((c) => c.code)).toEqual(['2823-3']);
+    expect(codeOf(b, 'obs-2-cl')?.coding?.map((c) => c.code)).toEqual(['2075-0']);
     expect(codeOf(b, 'obs-0-pvco2')?.coding?.map((c) => c.code)).toEqual(['2021-4']);
     expect(validator.validate(b, true)).toEqual([]);
+  });
+
+  it('a serum or plasma code is never kept on a blood gas line, nor a whole-blood code refused there', () => {
+    const na = fieldById('na')!;
+    const serum = na.loinc!;
+    for (const section of ['abg', 'vbg'] as const) {
+      expect(loincMismatch(serum, na, section)).toBe('2951-2 is for serum or plasma, the value is from a blood gas (whole blood)');
+      expect(fhirLoinc(na, section)?.code).toBe('2947-0');
+    }
+    expect(fhirLoinc(na, 'labs')?.code).toBe('2951-2');
   });
 
   it('the flow of a high-flow device is the total gas flow, so it is not coded as inhaled oxygen flow (3151-8)', () => {
@@ -179,11 +192,21 @@ describe('codes that fit the value', () => {
     expect(codeOf(b, 'obs-2-vt')).toEqual({ text: 'Tidal volume' }); // PS carried: still no set volume
   });
 
-  it('a serum value written as tco2 is total CO2, so it does not carry the bicarbonate code (1963-8)', () => {
-    const b = toFhirBundle('a.pneu', checked('@ day 1 08:00\nlabs tco2 25\n@ +1h\nlabs hco3 24'), noAnchor);
-    expect(codeOf(b, 'obs-0-hco3-serum')).toEqual({ text: 'Bicarbonate (serum)' });
+  it('a serum value written as tco2 is total CO2 (2028-9), not the bicarbonate of 1963-8, and the reverse', () => {
+    const b = toFhirBundle('a.pneu', checked('@ day 1 08:00\nlabs tco2 25\n@ +1h\nlabs hco3 24\n@ +1h\nlabs bicarb 23'), noAnchor);
+    expect(codeOf(b, 'obs-0-hco3-serum')).toEqual({ coding: [{ system: 'http://loinc.org', code: '2028-9', display: 'Carbon dioxide, total [Moles/volume] in Serum or Plasma' }], text: 'Bicarbonate (serum)' });
     expect(byId(b, 'obs-0-hco3-serum')?.valueQuantity?.value).toBe(25);
     expect(codeOf(b, 'obs-1-hco3-serum')?.coding?.map((c) => c.code)).toEqual(['1963-8']);
+    expect(codeOf(b, 'obs-2-hco3-serum')?.coding?.map((c) => c.code)).toEqual(['1963-8']);
+    expect(validator.validate(b, true)).toEqual([]);
+    // Whatever code the registry gives, the mismatch rules refuse each on the other key.
+    const field = fieldById('hco3_serum')!;
+    const bicarbonate = field.loinc!;
+    const totalCo2 = field.loincByKey!['tco2']!;
+    const written = (key: string) => ({ key, device: null, mode: null });
+    expect(loincMismatch(bicarbonate, field, 'labs', written('tco2'))).toBe('1963-8 is bicarbonate, the value was written as total CO2 (tco2)');
+    expect(loincMismatch(totalCo2, field, 'labs', written('hco3'))).toBe('2028-9 is total CO2, the value was written as hco3');
+    expect(loincMismatch(totalCo2, field, 'labs', written('tco2'))).toBeNull();
   });
 
   it('the registry codes left out, by field and section, are exactly these (a change shows in review)', () => {
@@ -196,26 +219,20 @@ describe('codes that fit the value', () => {
     }
     expect(dropped).toEqual([
       'base_excess@vbg: 1925-7 is for arterial blood, the value is from a venous gas',
-      'na@abg: 2951-2 is for serum or plasma, the value is from a blood gas (whole blood)',
-      'na@vbg: 2951-2 is for serum or plasma, the value is from a blood gas (whole blood)',
-      'k@abg: 2823-3 is for serum or plasma, the value is from a blood gas (whole blood)',
-      'k@vbg: 2823-3 is for serum or plasma, the value is from a blood gas (whole blood)',
-      'cl@abg: 2075-0 is for serum or plasma, the value is from a blood gas (whole blood)',
-      'cl@vbg: 2075-0 is for serum or plasma, the value is from a blood gas (whole blood)',
-      'glucose@labs: 2345-7 is a mass concentration, the value is not',
-      'glucose@abg: 2345-7 is a mass concentration, the value is not',
-      'glucose@vbg: 2345-7 is a mass concentration, the value is not',
     ]);
   });
 
-  it('every code that is kept names a property that agrees with the unit of the value', () => {
+  it('every code that is kept names a property that agrees with the unit of the value, and a specimen that agrees with the line', () => {
     for (const f of FIELDS) {
       for (const section of f.sections as readonly SectionId[]) {
-        const loinc = fhirLoinc(f, section);
-        if (!loinc) continue;
-        if (loinc.display.includes('[Moles/volume]')) expect(f.unit, f.id).toBe('mmol/L');
-        if (loinc.display.includes('[Mass/volume]')) expect(f.unit, f.id).toBe('g/dL');
-        if (loinc.display.includes('[Partial pressure]')) expect(f.unit, f.id).toBe('mmHg');
+        for (const key of [null, ...f.aliases]) {
+          const loinc = fhirLoinc(f, section, { key, device: null, mode: null });
+          if (!loinc) continue;
+          if (loinc.display.includes('[Moles/volume]')) expect(f.unit, f.id).toBe('mmol/L');
+          if (loinc.display.includes('[Mass/volume]')) expect(f.unit, f.id).toBe('g/dL');
+          if (loinc.display.includes('[Partial pressure]')) expect(f.unit, f.id).toBe('mmHg');
+          if (/ in Serum or Plasma\b/.test(loinc.display)) expect(section, `${f.id}@${section}`).toBe('labs'); // never on a blood gas line
+        }
       }
     }
   });
@@ -235,7 +252,7 @@ describe('codes that fit the value', () => {
 });
 
 describe('LOINC codes by section', () => {
-  it('codes a ventilator FiO2 as the ventilator setting (19994-3) and an oxygen-line FiO2 as inhaled oxygen (3150-0) — LOINC (from memory)', () => {
+  it('codes a ventilator FiO2 as the ventilator setting (19994-3, HL7 SANER IG 1.0.0 ValueSet Ventilator Observations, 2021) and an oxygen-line FiO2 as inhaled oxygen (3150-0)', () => {
     const b = toFhirBundle('a.pneu', checked('@ 08:00\nvent mode VC, vt 420, rate 16, peep 8, fio2 0.5\n@ 09:00\noxygen venturi, fio2 0.28'), noAnchor);
     expect(byId(b, 'obs-0-fio2')?.code.coding?.[0]?.code).toBe('19994-3');
     expect(byId(b, 'obs-1-fio2')?.code.coding?.[0]?.code).toBe('3150-0');
@@ -248,7 +265,7 @@ describe('categories', () => {
     const of = (id: string) => observationCategory(FIELDS.find((f) => f.id === id)!);
     expect(['hr', 'rr', 'spo2', 'temp', 'bp', 'height', 'weight'].map(of)).toEqual(Array(7).fill('vital-signs'));
     expect(['ph', 'paco2', 'pao2', 'sao2', 'pvo2', 'lactate', 'hb', 'na', 'albumin', 'glucose'].map(of)).toEqual(Array(10).fill('laboratory'));
-    expect(['fio2', 'o2_flow', 'vt', 'peep'].map(of)).toEqual(Array(4).fill('therapy'));
+    expect(['fio2', 'o2_flow', 'vt', 'peep', 'pressure_support'].map(of)).toEqual(Array(5).fill('therapy'));
     expect(of('age')).toBeNull();
   });
 

@@ -43,6 +43,16 @@ describe('hover on a key, value or unit', () => {
     endsWithCaution(md);
   });
 
+  it('gives the LOINC code of the value as written (its line, its key) and where the code was checked', () => {
+    // Sodium from a blood gas is whole blood, from the laboratory serum or plasma; tco2 is total CO2.
+    expect(markdown('abg n|a 137')).toContain('LOINC 2947-0 — Sodium \\[Moles/volume\\] in Blood (checked on: LOINC group LG11363-5');
+    expect(markdown('labs n|a 140')).toContain('LOINC 2951-2 — Sodium \\[Moles/volume\\] in Serum or Plasma (checked on: ');
+    expect(markdown('labs tc|o2 25')).toContain('LOINC 2028-9 — Carbon dioxide, total');
+    expect(markdown('vent mode VC, fio|2 0.5')).toContain('LOINC 19994-3 — Oxygen/Total gas setting');
+    expect(markdown('vbg p|h 7.31')).toContain('LOINC 2746-6 — pH of Venous blood (code recalled, not checked against the LOINC table)');
+    expect(markdown('vent pla|teau 22')).not.toContain('LOINC');
+  });
+
   it('gives the same hover on the value and on the unit, with the unit as written', () => {
     const onValue = hover('abg po2 9|.5 kPa');
     const onUnit = hover('abg po2 9.5 kP|a');

@@ -16,19 +16,23 @@
  * - blood pressure as one Observation with the panel code of the registry and two components.
  *
  * Codes: `code.text` is always our label; `code.coding` holds the field's LOINC code from the
- * registry (per section where it has one: a ventilator's FiO2 is a setting) only when what the
+ * registry (per key where it has one: a serum value written as `tco2` is total CO2; else per
+ * section where it has one: a ventilator's FiO2 is a setting, and sodium, potassium, chloride and
+ * glucose on a blood gas line are whole blood, on a labs line serum or plasma) only when what the
  * code's name says agrees with the value (`fhirLoinc`, `loincMismatch`):
  * - a `[Mass/volume]` code never on a value in mmol/L, nor `[Moles/volume]` on one in g/dL;
  * - an arterial-blood code never on a value from a `vbg` line, nor a venous one on an `abg` line;
  * - a serum-or-plasma code never on a value from a blood gas (`abg`, `vbg`: whole blood);
  * - the oxygen flow code (3151-8) never on the flow of a high-flow device (`hfnc`), which is the
  *   total gas flow;
- * - the bicarbonate code never on a value written as `tco2` (total CO2);
+ * - the bicarbonate code never on a value written as `tco2` (total CO2), nor the total CO2 code on a
+ *   value written with another key;
  * - the tidal volume setting code (20112-9) never on a tidal volume written under a mode that sets
  *   none (PC, PS, APRV, CPAP, HFOV: it was delivered).
  * A value whose field has no code, or whose code does not fit, is still exported, with `code.text`
  * alone and no coding: a wrong code is worse than none. A code marked `fromMemory` in the registry
- * was recalled, not read from the LOINC table.
+ * was recalled, not read from the LOINC table; the others name in `source` the page they were read
+ * on, or come from the project's reference notes. Nothing is looked up when exporting.
  *
  * Every Observation has `status: final` and a `valueQuantity` in the field's canonical unit
  * (gases in mmHg, whatever the note wrote), full precision, with the UCUM code of the unit
@@ -37,10 +41,12 @@
  *
  * Categories (http://terminology.hl7.org/CodeSystem/observation-category), by the field's first
  * section: vitals → vital-signs; abg, vbg and labs → laboratory (and the P/F ratio, a blood-gas
- * index); oxygen and vent → therapy for settings (FiO2, oxygen flow, tidal volume and PEEP are
- * settings of the treatment, not measurements of the patient) and none for what is read off the
- * ventilator (plateau, peak and mean airway pressure, minute volume); patient → vital-signs for
- * height and weight (both belong to FHIR's vital-signs set), no category for age.
+ * index); oxygen and vent → therapy for settings (FiO2, oxygen flow, tidal volume, PEEP and
+ * pressure support are settings of the treatment, not measurements of the patient, and their codes
+ * name settings) and none for what is read off the ventilator (plateau, peak and mean airway
+ * pressure, minute volume); patient → vital-signs for height and weight (both belong to FHIR's
+ * vital-signs set), no category for age. A field has one category whatever its line: sodium,
+ * potassium, chloride, glucose and lactate are laboratory values on a blood gas line too.
  *
  * Time: notes hold relative days and clock times only. With `anchor` (an ISO 8601 date-time with
  * seconds optional and a zone, `Z` or `±hh:mm`, meaning 00:00 of day 1, so its time must be
@@ -197,6 +203,7 @@ export function loincMismatch(loinc: LoincCode, field: FieldDef, section: Sectio
   const device = written.device;
   // `tco2` is total CO2 (bicarbonate plus dissolved CO2 and carbamino CO2), which LOINC codes apart from bicarbonate.
   if (/^Bicarbonate\b/.test(name) && written.key === 'tco2') return `${loinc.code} is bicarbonate, the value was written as total CO2 (tco2)`;
+  if (/^Carbon dioxide, total\b/.test(name) && written.key !== null && written.key !== 'tco2') return `${loinc.code} is total CO2, the value was written as ${written.key}`;
   // A high-flow device's flow is the total gas flow (air and oxygen blended to the FiO2), not the oxygen flow.
   if (/\bsetting\b/.test(name) && field.id === 'vt' && written.mode !== null && MODES_WITHOUT_SET_VOLUME.has(written.mode)) return `${loinc.code} is a set tidal volume, and ${written.mode} sets none`;
   if (/^Inhaled oxygen flow rate\b/.test(name) && device === 'hfnc') return `${loinc.code} is the oxygen flow, the value is the total gas flow of a high-flow device`;
@@ -210,7 +217,7 @@ export function loincMismatch(loinc: LoincCode, field: FieldDef, section: Sectio
 
 /** The LOINC code an Observation of `field` stated in `section` carries, or null (see the header comment). */
 export function fhirLoinc(field: FieldDef, section: SectionId, written: WrittenAs = NOTHING_MORE): LoincCode | null {
-  const loinc = loincFor(field, section);
+  const loinc = loincFor(field, section, written.key);
   return loinc && loincMismatch(loinc, field, section, written) === null ? loinc : null;
 }
 
@@ -316,7 +323,7 @@ interface Place {
 
 /** The Observation of one stated value; null when the field is not exported or has no usable number. */
 function fieldObservation(field: FieldDef, input: InputValue, place: Place): Omit<FhirObservation, 'id'> | null {
-  // A ventilator's FiO2 is a setting with a code of its own; a code that does not fit is left out.
+  // A ventilator's FiO2, a blood gas sodium, a value written as tco2 have codes of their own; a code that does not fit is left out.
   const loinc = fhirLoinc(field, input.stated.section, { key: input.stated.item.keyName, device: place.device, mode: place.mode });
   const unitId = input.stated.unit;
   if (!isObservedField(field) || !input.stated.usable || unitId === null) return null;

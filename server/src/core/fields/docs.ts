@@ -3,7 +3,7 @@
  * (between the `fields:start` and `fields:end` markers). A test fails when it is stale.
  */
 import { displayUnit } from '../analysis/read-value';
-import { FIELDS, loincFor, type FieldDef } from './registry';
+import { FIELDS, loincCodesOf, loincFor, type FieldDef, type LoincCode } from './registry';
 import { SECTIONS } from './sections';
 import { UNITS } from './units';
 import { DERIVED_TABLE_END, DERIVED_TABLE_START, renderDerivedTable } from '../derive/docs';
@@ -35,6 +35,30 @@ function wordsText(field: FieldDef): string {
   return `word: ${words.join(', ')}${field.openWords ? ', or any word' : ''}`;
 }
 
+function loincCell(code: LoincCode): string {
+  return `${code.code}${code.fromMemory ? ' (from memory)' : ''}`;
+}
+
+/** Every LOINC code of the registry with its name and the page it was checked on. */
+function renderLoincTable(): string[] {
+  const out = [
+    '#### LOINC codes',
+    '',
+    'Where each code of the tables above was checked: a page that shows the code with its LOINC name. A code from memory was recalled and not found on such a page; one with no page comes from the project reference notes. Pneumark looks nothing up: exports write the code of the registry.',
+    '',
+    '| Code | LOINC name | Checked on |',
+    '|---|---|---|',
+  ];
+  const seen = new Set<string>();
+  for (const f of FIELDS) for (const c of loincCodesOf(f)) {
+    if (seen.has(c.code)) continue;
+    seen.add(c.code);
+    out.push(`| ${c.code} | ${c.display} | ${c.source ?? (c.fromMemory ? 'recalled, not checked' : 'project reference notes')} |`);
+  }
+  out.push('');
+  return out;
+}
+
 /**
  * Every unit as it is written back, with the other spellings that read as it (in any case). The two
  * units Pneumark keeps apart inside (a fraction's percentage, a saturation's) are written alike, so
@@ -64,12 +88,14 @@ export function renderFieldTable(): string {
     for (const f of fields) {
       const units = f.kind === 'word' ? wordsText(f) : (f.units ?? []).map(displayUnit).join(', ') + (f.bare === 'gas' ? ' (bare: the note gas unit)' : f.bare === 'fraction-or-percent' ? ' (bare: ≤ 1 fraction, else %)' : '');
       const code = loincFor(f, s.id);
-      const loinc = code ? `${code.code}${code.fromMemory ? ' (from memory)' : ''}` : '—';
+      const byKey = Object.entries(f.loincByKey ?? {}).map(([key, c]) => `; written \`${key}\`: ${loincCell(c)}`).join('');
+      const loinc = code ? `${loincCell(code)}${byKey}` : '—';
       out.push(`| ${f.aliases.map((a) => `\`${a}\``).join(', ')} | ${f.label}${f.reading ? ' (measured, does not carry)' : ''} | ${units} | ${bounds(f.hard)} | ${bounds(f.soft)} | ${loinc} |`);
     }
     out.push('');
   }
   out.push(...renderUnitTable());
+  out.push(...renderLoincTable());
   out.push('Bounds are in the first unit listed. Sources of the bounds: see `boundsSource` in `server/src/core/fields/registry.ts` (most are common practice, no single source).', '', FIELD_TABLE_END);
   return out.join('\n');
 }

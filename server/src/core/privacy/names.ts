@@ -16,7 +16,7 @@
  * regurgitation, multiple sclerosis, doctor in shorthand): they count only with name words in
  * capitals right after them (`MR SMITH`, `MS JANE ROE`, not `MR severe`, `MS FLARE`, `MR ANGIO`).
  */
-import { FIELDS } from '../fields/registry';
+import { FIELDS, loincCodesOf } from '../fields/registry';
 import { SECTIONS } from '../fields/sections';
 import { UNITS } from '../fields/units';
 import { isAsciiLowerAt, isBlankGap, isLetterChar, isLowerChar, isUpperChar, mayBeUpperAt, runsOf, type Run } from './text';
@@ -177,7 +177,7 @@ const ABBREVIATIONS = new Set([
 const REGISTRY_WORDS: ReadonlySet<string> = new Set(
   [
     ...SECTIONS.flatMap((sec) => [sec.id, ...sec.aliases]),
-    ...FIELDS.flatMap((f) => [...f.aliases, f.label, f.short ?? '', f.loinc?.display ?? '', ...Object.keys(f.words ?? {}), ...Object.values(f.words ?? {})]),
+    ...FIELDS.flatMap((f) => [...f.aliases, f.label, f.short ?? '', ...loincCodesOf(f).map((c) => c.display), ...Object.keys(f.words ?? {}), ...Object.values(f.words ?? {})]),
     ...UNITS.flatMap((u) => [u.id, ...u.aliases]),
   ].flatMap((phrase) => runsOf(phrase).filter((r) => r.kind === 'letters').map((r) => r.text.toLowerCase())),
 );

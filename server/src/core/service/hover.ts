@@ -11,7 +11,7 @@ import type { StatedValue, Timepoint } from '../analysis/model';
 import { displayUnit } from '../analysis/read-value';
 import type { DerivedValue, TimepointDerivation } from '../derive/model';
 import { derivedDef } from '../derive/registry';
-import { fieldFor, fieldsInSection, type FieldDef } from '../fields/registry';
+import { fieldFor, fieldsInSection, loincFor, type FieldDef } from '../fields/registry';
 import { sectionById, type SectionId } from '../fields/sections';
 import { describeInput, formatAlternative, formatStated, statedInKpa } from '../present';
 import type { SectionLine, TimepointLine } from '../syntax/tree';
@@ -92,9 +92,18 @@ function fieldMarkdown(result: NoteResult, node: SectionLine, hit: ItemHit): str
     parts.push(`${code(hit.item.value.text)} could not be read as ${escapeMarkdown(field.label)}.`);
   }
   parts.push(carryText(field, node.section));
-  if (field.loinc) parts.push(`LOINC ${field.loinc.code} — ${escapeMarkdown(field.loinc.display)}${field.loinc.fromMemory ? ' (code recalled, not checked against the LOINC table)' : ''}`);
+  parts.push(loincText(field, node.section, hit.item.keyName));
   parts.push(cautionLine());
   return paragraphs(parts);
+}
+
+/** The LOINC code of the value as written here (its key, its section) and where it was checked. */
+function loincText(field: FieldDef, section: SectionId, key: string): string | null {
+  const loinc = loincFor(field, section, key);
+  if (!loinc) return null;
+  const provenance = loinc.fromMemory ? ' (code recalled, not checked against the LOINC table)'
+    : loinc.source ? ` (checked on: ${loinc.source})` : '';
+  return `LOINC ${loinc.code} — ${escapeMarkdown(loinc.display)}${escapeMarkdown(provenance)}`;
 }
 
 function shorthandPosition(key: string): string {
