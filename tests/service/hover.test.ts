@@ -50,7 +50,8 @@ describe('hover on a key, value or unit', () => {
     expect(markdown('labs tc|o2 25')).toContain('LOINC 2028-9 — Carbon dioxide, total');
     expect(markdown('vent mode VC, fio|2 0.5')).toContain('LOINC 19994-3 — Oxygen/Total gas setting');
     expect(markdown('vbg p|h 7.31')).toContain('LOINC 2746-6 — pH of Venous blood (code recalled, not checked against the LOINC table)');
-    expect(markdown('vent pla|teau 22')).not.toContain('LOINC');
+    expect(markdown('vent pla|teau 22')).toContain('LOINC 76259-1 — Pressure.plateau Respiratory system airway --on ventilator (checked on: MII ICU module');
+    expect(markdown('vent ra|te 14')).not.toContain('LOINC'); // no code found for the set rate
   });
 
   it('gives the same hover on the value and on the unit, with the unit as written', () => {

@@ -17,8 +17,9 @@
  *
  * Codes: `code.text` is always our label; `code.coding` holds the field's LOINC code from the
  * registry (per key where it has one: a serum value written as `tco2` is total CO2; else per
- * section where it has one: a ventilator's FiO2 is a setting, and sodium, potassium, chloride and
- * glucose on a blood gas line are whole blood, on a labs line serum or plasma) only when what the
+ * section where it has one: a ventilator's FiO2 is a setting, sodium, potassium, chloride and
+ * glucose on a blood gas line are whole blood, on a labs line serum or plasma, and a base excess
+ * from a `vbg` line is coded as blood, the arterial code being for `abg` lines) only when what the
  * code's name says agrees with the value (`fhirLoinc`, `loincMismatch`):
  * - a `[Mass/volume]` code never on a value in mmol/L, nor `[Moles/volume]` on one in g/dL;
  * - an arterial-blood code never on a value from a `vbg` line, nor a venous one on an `abg` line;
@@ -28,7 +29,11 @@
  * - the bicarbonate code never on a value written as `tco2` (total CO2), nor the total CO2 code on a
  *   value written with another key;
  * - the tidal volume setting code (20112-9) never on a tidal volume written under a mode that sets
- *   none (PC, PS, APRV, CPAP, HFOV: it was delivered).
+ *   none (PC, PS, APRV, CPAP, HFOV: it was delivered), nor the inspiratory flow setting code
+ *   (76275-7) on a flow written under a mode that sets no flow (PC, PRVC, PS, APRV, CPAP, HFOV: the
+ *   flow follows the pressure, so the value was measured);
+ * - a code whose name says `setting` never on a reading (plateau, peak, mean airway pressure,
+ *   minute volume, end-tidal CO2), nor one measured `--on ventilator` on a setting.
  * A value whose field has no code, or whose code does not fit, is still exported, with `code.text`
  * alone and no coding: a wrong code is worse than none. A code marked `fromMemory` in the registry
  * was recalled, not read from the LOINC table; the others name in `source` the page they were read
@@ -41,12 +46,19 @@
  *
  * Categories (http://terminology.hl7.org/CodeSystem/observation-category), by the field's first
  * section: vitals → vital-signs; abg, vbg and labs → laboratory (and the P/F ratio, a blood-gas
- * index); oxygen and vent → therapy for settings (FiO2, oxygen flow, tidal volume, PEEP and
- * pressure support are settings of the treatment, not measurements of the patient, and their codes
- * name settings) and none for what is read off the ventilator (plateau, peak and mean airway
- * pressure, minute volume); patient → vital-signs for height and weight (both belong to FHIR's
- * vital-signs set), no category for age. A field has one category whatever its line: sodium,
- * potassium, chloride, glucose and lactate are laboratory values on a blood gas line too.
+ * index); oxygen and vent → therapy for settings (FiO2, oxygen flow, tidal volume, PEEP, pressure
+ * support and inspiratory flow are settings of the treatment, not measurements of the patient, and
+ * their codes name settings; likewise the set rate, IPAP, EPAP and CPAP, which have no code) and
+ * none for what is read off the ventilator (plateau, peak and mean airway pressure, minute volume:
+ * the mechanics of the ventilated lung as the machine measures them, neither a setting nor one of
+ * FHIR's vital signs, and their codes name measurements `--on ventilator`); patient → vital-signs
+ * for height and weight (both belong to FHIR's vital-signs set), no category for age. A field has
+ * one category whatever its line: sodium, potassium, chloride, glucose and lactate are laboratory
+ * values on a blood gas line too, and end-tidal CO2 (first in vitals) is vital-signs on a vent line
+ * too: it measures the patient's exhaled gas (its code names exhaled gas, not the ventilator), on a
+ * monitor or on the ventilator alike, and is no setting. Cardiac output (vitals) is vital-signs:
+ * haemodynamic monitoring of the patient, which the MII ICU module's cardiac output profile (the
+ * page its code was read on) also derives from the vital-signs profile.
  *
  * Time: notes hold relative days and clock times only. With `anchor` (an ISO 8601 date-time with
  * seconds optional and a zone, `Z` or `±hh:mm`, meaning 00:00 of day 1, so its time must be
@@ -167,6 +179,7 @@ export function observationCategory(field: FieldDef): ObservationCategory | null
   const section = field.sections[0];
   const category = section ? CATEGORY_OF_SECTION[section] : null;
   // Plateau, peak and mean airway pressure, minute volume: read off the ventilator, not a setting.
+  // End-tidal CO2 is first in vitals, so it is vital-signs on a vent line too (see the header comment).
   return category === 'therapy' && field.reading ? null : category;
 }
 
@@ -195,6 +208,12 @@ const NOTHING_MORE: WrittenAs = { key: null, device: null, mode: null };
 const MODES_WITHOUT_SET_VOLUME: ReadonlySet<string> = new Set(['PC', 'PS', 'APRV', 'CPAP', 'HFOV']);
 
 /**
+ * Ventilator modes with no set inspiratory flow (pressure-controlled, -regulated or -supported
+ * breaths, where the flow follows the pressure): a flow written with them was measured, not set.
+ */
+const MODES_WITHOUT_SET_FLOW: ReadonlySet<string> = new Set(['PC', 'PRVC', 'PS', 'APRV', 'CPAP', 'HFOV']);
+
+/**
  * Why a LOINC code does not fit a value of `field` stated in `section`, read from what the code's
  * name says (its property in brackets, its specimen after `in`); null when nothing contradicts it.
  */
@@ -204,8 +223,13 @@ export function loincMismatch(loinc: LoincCode, field: FieldDef, section: Sectio
   // `tco2` is total CO2 (bicarbonate plus dissolved CO2 and carbamino CO2), which LOINC codes apart from bicarbonate.
   if (/^Bicarbonate\b/.test(name) && written.key === 'tco2') return `${loinc.code} is bicarbonate, the value was written as total CO2 (tco2)`;
   if (/^Carbon dioxide, total\b/.test(name) && written.key !== null && written.key !== 'tco2') return `${loinc.code} is total CO2, the value was written as ${written.key}`;
-  // A high-flow device's flow is the total gas flow (air and oxygen blended to the FiO2), not the oxygen flow.
+  // A setting is what the clinician chose, a reading what was measured: neither code fits the other.
+  if (/\bsetting\b/.test(name) && field.reading === true) return `${loinc.code} is a setting, the value is a reading`;
+  if (/--on ventilator\b/.test(name) && field.reading !== true) return `${loinc.code} is measured on the ventilator, the value is a setting`;
+  // A volume or a flow written under a mode that sets none was delivered, so it was measured.
   if (/\bsetting\b/.test(name) && field.id === 'vt' && written.mode !== null && MODES_WITHOUT_SET_VOLUME.has(written.mode)) return `${loinc.code} is a set tidal volume, and ${written.mode} sets none`;
+  if (/\bsetting\b/.test(name) && field.id === 'insp_flow' && written.mode !== null && MODES_WITHOUT_SET_FLOW.has(written.mode)) return `${loinc.code} is a set inspiratory flow, and ${written.mode} sets none`;
+  // A high-flow device's flow is the total gas flow (air and oxygen blended to the FiO2), not the oxygen flow.
   if (/^Inhaled oxygen flow rate\b/.test(name) && device === 'hfnc') return `${loinc.code} is the oxygen flow, the value is the total gas flow of a high-flow device`;
   if (name.includes('[Mass/volume]') && field.dimension !== 'mass-concentration') return `${loinc.code} is a mass concentration, the value is not`;
   if (name.includes('[Moles/volume]') && field.dimension !== 'substance-concentration') return `${loinc.code} is a substance concentration, the value is not`;
