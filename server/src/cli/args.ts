@@ -55,7 +55,7 @@ Options:
   --quiet                    list error findings only (text, json and sarif; totals count all)
   --max-warnings N           exit 1 when there are more than N warnings (N a whole number, 0 or more)
   --exclude PATTERN          leave out paths matching PATTERN (gitignore syntax; repeatable)
-  --jobs N                   worker threads (0 or 1: none); default one per core, up to 4, from 200 notes
+  --jobs N                   worker threads (0 or 1: none); default one per core, up to 4, from 2000 notes
   --no-progress              no progress bar, even on a terminal`,
   export: `Usage: pneumark export PATH... --format csv|jsonl|fhir [options]
 
@@ -71,7 +71,7 @@ Options:
                              return or ' (undo by removing one), and a byte-order mark; for files
                              opened in spreadsheet programs (the default output stays exact)
   --exclude PATTERN          leave out paths matching PATTERN (gitignore syntax; repeatable)
-  --jobs N                   worker threads (0 or 1: none); default one per core, up to 4, from 200 notes
+  --jobs N                   worker threads (0 or 1: none); default one per core, up to 4, from 2000 notes
   --no-progress              no progress bar, even on a terminal
 Columns are listed in README.md ("Export columns").`,
   fmt: `Usage: pneumark fmt PATH... [--check | --write] [--force]

@@ -10,8 +10,16 @@ import type { Io } from './args';
 import { progressBar } from './progress';
 import { unpackReport, type FileReport, type NoteWorker, type PackedReport, type Task } from './work';
 
-/** Below this many notes a single thread is faster than starting workers. */
-export const PARALLEL_FROM = 200;
+/**
+ * Below this many notes a single thread is faster than starting workers. Each worker loads the
+ * bundle and warms up V8's compilers on its own (some 0.6 s of work in all on the 2-core VM, where
+ * the compilers' threads then share the cores with the workers), which takes thousands of notes to
+ * win back. Measured there on notes of the bench corpus (3.2 KB on average; `npm run bench:cli`),
+ * one thread against two workers: `export --format csv` gains from about 1,500 notes, `check
+ * --quiet` from about 3,000 (600 ms against 860 at 200 notes, 1.5 s against 1.8 at 2,000, 3.6 s
+ * against 2.9 at 10,000); a machine with more cores gains sooner.
+ */
+export const PARALLEL_FROM = 2000;
 
 /** Batches each worker has been sent and not yet answered. */
 const IN_FLIGHT = 2;
