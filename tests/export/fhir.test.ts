@@ -92,11 +92,17 @@ describe('observations', () => {
     expect(bp.valueQuantity).toBeUndefined();
     expect(bp.code.coding?.[0]?.code).toBe('85354-9');
     expect(bp.component?.map((c) => [c.code.coding?.[0]?.code, c.valueQuantity.value, c.valueQuantity.code])).toEqual([['8480-6', 104, 'mm[Hg]'], ['8462-4', 62, 'mm[Hg]']]);
+    // LOINC 8480-6 "Systolic blood pressure" and 8462-4 "Diastolic blood pressure", as the blood
+    // pressure example of FHIR 6.0.0-ballot1 (hl7.org/fhir/6.0.0-ballot1/observation-example-bloodpressure.html) codes its components.
+    expect(bp.component?.map((c) => c.code.coding?.[0]?.display)).toEqual(['Systolic blood pressure', 'Diastolic blood pressure']);
   });
 
   it('P/F ratio with its LOINC code, in mmHg, derived from the PaO2 and FiO2 Observations', () => {
     const pf = byId(bundle, 'obs-2-pf-ratio')!;
-    expect(pf.code.coding?.[0]?.code).toBe('50984-4');
+    // LOINC 50984-4 "Horowitz index in Arterial blood", as the MII ICU module's value set of
+    // ventilation codes shows it (CPG on EBMonFHIR 1.0.2 build, ValueSet
+    // vs-mii-icu-code-observation-beatmung-loinc, build.fhir.org/ig/CEOsys/cpg-on-ebm-on-fhir).
+    expect(pf.code.coding).toEqual([{ system: 'http://loinc.org', code: '50984-4', display: 'Horowitz index in Arterial blood' }]);
     expect(pf.valueQuantity?.value).toBeCloseTo(82 / 0.6, 9);
     expect(pf.valueQuantity?.code).toBe('mm[Hg]');
     // Timepoint 2 uses the FiO2 carried from timepoint 1: the reference points there.

@@ -245,12 +245,16 @@ export function fhirLoinc(field: FieldDef, section: SectionId, written: WrittenA
   return loinc && loincMismatch(loinc, field, section, written) === null ? loinc : null;
 }
 
-// Blood pressure components: LOINC codes from memory (the registry holds only the panel code).
+// Blood pressure components (the registry holds only the panel code), as the blood pressure example
+// of FHIR 6.0.0-ballot1 codes them: https://hl7.org/fhir/6.0.0-ballot1/observation-example-bloodpressure.html
 const SYSTOLIC: FhirCoding = { system: LOINC, code: '8480-6', display: 'Systolic blood pressure' };
 const DIASTOLIC: FhirCoding = { system: LOINC, code: '8462-4', display: 'Diastolic blood pressure' };
 
-// The P/F ratio (Horowitz index): LOINC code and display from memory.
-const PF_RATIO: FhirCoding = { system: LOINC, code: '50984-4', display: 'Horowitz index in Arterial blood+Inspired gas' };
+// The P/F ratio (Horowitz index), with the LOINC name the value set of ventilation codes of the MII
+// ICU module shows for it (CPG on EBMonFHIR 1.0.2 build, ValueSet vs-mii-icu-code-observation-beatmung-loinc:
+// https://build.fhir.org/ig/CEOsys/cpg-on-ebm-on-fhir/ValueSet-vs-mii-icu-code-observation-beatmung-loinc.json.html).
+// The name this code was written with before ("… in Arterial blood+Inspired gas") was recalled, and wrong.
+const PF_RATIO: FhirCoding = { system: LOINC, code: '50984-4', display: 'Horowitz index in Arterial blood' };
 
 // ── time ──────────────────────────────────────────────────────────────────────
 
