@@ -45,7 +45,9 @@ describe('hover on a key, value or unit', () => {
 
   it('gives the LOINC code of the value as written (its line, its key) and where the code was checked', () => {
     // Sodium from a blood gas is whole blood, from the laboratory serum or plasma; tco2 is total CO2.
-    expect(markdown('abg n|a 137')).toContain('LOINC 2947-0 — Sodium \\[Moles/volume\\] in Blood (checked on: LOINC group LG11363-5');
+    expect(markdown('abg n|a 137')).toContain('LOINC 2947-0 — Sodium \\[Moles/volume\\] in Blood (checked on: LOINC group LG11363-5 (sodium, substance concentration), LOINC 2.73)');
+    // The page's title only: its address is in grammar/README.md, a hover stays short.
+    expect(markdown('abg n|a 137')).not.toContain('https://');
     expect(markdown('labs n|a 140')).toContain('LOINC 2951-2 — Sodium \\[Moles/volume\\] in Serum or Plasma (checked on: ');
     expect(markdown('labs tc|o2 25')).toContain('LOINC 2028-9 — Carbon dioxide, total');
     expect(markdown('vent mode VC, fio|2 0.5')).toContain('LOINC 19994-3 — Oxygen/Total gas setting');

@@ -97,13 +97,22 @@ function fieldMarkdown(result: NoteResult, node: SectionLine, hit: ItemHit): str
   return paragraphs(parts);
 }
 
-/** The LOINC code of the value as written here (its key, its section) and where it was checked. */
+/**
+ * The LOINC code of the value as written here (its key, its section) and where it was checked: the
+ * page's title, not its address (a hover is read at a glance; grammar/README.md lists the addresses).
+ */
 function loincText(field: FieldDef, section: SectionId, key: string): string | null {
   const loinc = loincFor(field, section, key);
   if (!loinc) return null;
   const provenance = loinc.fromMemory ? ' (code recalled, not checked against the LOINC table)'
-    : loinc.source ? ` (checked on: ${loinc.source})` : '';
+    : loinc.source ? ` (checked on: ${sourceTitle(loinc.source)})` : '';
   return `LOINC ${loinc.code} — ${escapeMarkdown(loinc.display)}${escapeMarkdown(provenance)}`;
+}
+
+/** A registry source without its address: `title — https://…` gives the title. */
+function sourceTitle(source: string): string {
+  const cut = source.lastIndexOf(' — https://');
+  return cut < 0 ? source : source.slice(0, cut);
 }
 
 function shorthandPosition(key: string): string {
