@@ -802,7 +802,6 @@ const FIELD_INDEX: ReadonlyMap<string, number> = new Map(FIELDS.map((f, i) => [f
 const MASK_BITS = 30;
 if (FIELDS.length > 2 * MASK_BITS) throw new Error('timeline: too many fields for the bits of fields measured at a timepoint');
 
-
 function freeze(index: number, line: number | null, label: string, startLine: number, time: TimepointTime, stated: readonly StatedValue[], endLine: number, state: CarryState, settings: Settings): Timepoint {
   const values = new ValuesAt(index, state, stated);
   const gasUnit = gasUnitInForce(state, settings);

@@ -5,7 +5,7 @@
  */
 import { softBoundsAt, unitsWithin, within } from '../analysis/bounds';
 import type { StatedValue } from '../analysis/model';
-import { type Bounds, type FieldDef } from '../fields/registry';
+import type { Bounds, FieldDef } from '../fields/registry';
 import { displayUnit } from '../analysis/read-value';
 import { convert, unitById, type UnitDef } from '../fields/units';
 import { toRange } from '../syntax/tree';
@@ -165,7 +165,7 @@ export const saturationAbove100 = defineCheck({
     if (stated.value === null || stated.value <= 100 || !SATURATIONS.has(stated.fieldId)) return;
     ctx.report({
       range: toRange(stated.line, stated.item.value?.span ?? stated.item.span),
-      message: `${stated.field.label ?? stated.fieldId} ${stated.item.value?.text ?? ''} % is above 100 %, which is impossible.`,
+      message: `${stated.field.label} ${stated.item.value?.text ?? ''} % is above 100 %, which is impossible.`,
     });
   }, false),
 });

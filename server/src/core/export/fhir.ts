@@ -204,14 +204,15 @@ export interface WrittenAs {
 
 const NOTHING_MORE: WrittenAs = { key: null, device: null, mode: null };
 
-/** Ventilator modes with no set tidal volume: a tidal volume written with them was delivered, not set. */
-const MODES_WITHOUT_SET_VOLUME: ReadonlySet<string> = new Set(['PC', 'PS', 'APRV', 'CPAP', 'HFOV']);
-
 /**
- * Ventilator modes with no set inspiratory flow (pressure-controlled, -regulated or -supported
- * breaths, where the flow follows the pressure): a flow written with them was measured, not set.
+ * Settings some ventilator modes do not set, with those modes: a value written under one of them was
+ * delivered or measured, not set. No set tidal volume under pressure-controlled or -supported
+ * breaths; no set inspiratory flow there either, nor under PRVC (the flow follows the pressure).
  */
-const MODES_WITHOUT_SET_FLOW: ReadonlySet<string> = new Set(['PC', 'PRVC', 'PS', 'APRV', 'CPAP', 'HFOV']);
+const NOT_SET_UNDER: ReadonlyMap<string, { readonly what: string; readonly modes: ReadonlySet<string> }> = new Map([
+  ['vt', { what: 'tidal volume', modes: new Set(['PC', 'PS', 'APRV', 'CPAP', 'HFOV']) }],
+  ['insp_flow', { what: 'inspiratory flow', modes: new Set(['PC', 'PRVC', 'PS', 'APRV', 'CPAP', 'HFOV']) }],
+]);
 
 /**
  * Why a LOINC code does not fit a value of `field` stated in `section`, read from what the code's
@@ -227,8 +228,8 @@ export function loincMismatch(loinc: LoincCode, field: FieldDef, section: Sectio
   if (/\bsetting\b/.test(name) && field.reading === true) return `${loinc.code} is a setting, the value is a reading`;
   if (/--on ventilator\b/.test(name) && field.reading !== true) return `${loinc.code} is measured on the ventilator, the value is a setting`;
   // A volume or a flow written under a mode that sets none was delivered, so it was measured.
-  if (/\bsetting\b/.test(name) && field.id === 'vt' && written.mode !== null && MODES_WITHOUT_SET_VOLUME.has(written.mode)) return `${loinc.code} is a set tidal volume, and ${written.mode} sets none`;
-  if (/\bsetting\b/.test(name) && field.id === 'insp_flow' && written.mode !== null && MODES_WITHOUT_SET_FLOW.has(written.mode)) return `${loinc.code} is a set inspiratory flow, and ${written.mode} sets none`;
+  const notSet = NOT_SET_UNDER.get(field.id);
+  if (notSet && /\bsetting\b/.test(name) && written.mode !== null && notSet.modes.has(written.mode)) return `${loinc.code} is a set ${notSet.what}, and ${written.mode} sets none`;
   // A high-flow device's flow is the total gas flow (air and oxygen blended to the FiO2), not the oxygen flow.
   if (/^Inhaled oxygen flow rate\b/.test(name) && device === 'hfnc') return `${loinc.code} is the oxygen flow, the value is the total gas flow of a high-flow device`;
   if (name.includes('[Mass/volume]') && field.dimension !== 'mass-concentration') return `${loinc.code} is a mass concentration, the value is not`;

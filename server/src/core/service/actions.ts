@@ -12,7 +12,7 @@
 import type { NoteResult } from '../check-note';
 import type { StatedValue } from '../analysis/model';
 import { checkByCodeOrAlias } from '../checks/registry';
-import { type FieldDef } from '../fields/registry';
+import type { FieldDef } from '../fields/registry';
 import { comparePositions, type Finding, type Fix, type Range, type TextEdit } from '../types';
 import { allStated, isValidPosition, itemAt, lineAt, statedOnLine } from './locate';
 import { parseLine } from '../syntax/parser';
@@ -62,9 +62,8 @@ function valueActions(result: NoteResult, range: Range): ActionInfo[] {
 
   if (hit) {
     const stated = statedOnLine(result, line).find((s) => s.item === hit.item) ?? null;
-    const field = stated?.field;
-    if (stated && field) {
-      onGas ||= field.dimension === 'gas-pressure';
+    if (stated) {
+      onGas ||= stated.field.dimension === 'gas-pressure';
       if (hit.item.implied === 'shorthand') {
         pushAll(out, shorthandActions(result, line));
       } else {

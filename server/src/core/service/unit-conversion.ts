@@ -10,7 +10,7 @@
 import type { NoteResult } from '../check-note';
 import type { StatedValue } from '../analysis/model';
 import { displayUnit } from '../analysis/read-value';
-import { type FieldDef } from '../fields/registry';
+import type { FieldDef } from '../fields/registry';
 import { convert, unitById, unitsForSpelling, type UnitDef } from '../fields/units';
 import { decimalsFor } from '../present';
 import type { ItemNode, LineNode, SectionLine } from '../syntax/tree';
