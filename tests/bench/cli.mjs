@@ -2,6 +2,9 @@
 // timepoints each). Prints figures; asserts nothing. `npm run bench:cli` (builds first).
 //   analysis in process   checkNote over every note (parse + timeline + derived values + checks)
 //   JSON.parse floor      the same notes expressed as JSON (timepoints with their values), parsed
+//   scan floors           no analysis at all: one pass over every character of the notes, and
+//                         one small object per word; what any reader of the text written in
+//                         JavaScript pays before it has read a single value
 //   check / export csv    the built command over the corpus folder, wall time (check also in one
 //                         thread, `--jobs 0`: what the workers gain over it)
 import { spawnSync } from 'node:child_process';
@@ -31,12 +34,48 @@ const jsons = texts.map((t) => JSON.stringify(core.checkNote(t).analysis.timelin
 }))));
 const jsonBytes = jsons.reduce((n, t) => n + Buffer.byteLength(t), 0);
 
+// Floors of reading the text in JavaScript, nothing analysed: each character looked at once (words
+// counted), and each word kept as one small object with its place (what a syntax tree keeps at least).
+let sink = 0;
+const scanCharacters = () => {
+  for (const t of texts) {
+    let words = 0;
+    let inWord = false;
+    for (let i = 0; i < t.length; i++) {
+      const c = t.charCodeAt(i);
+      const blank = c === 0x20 || c === 0x0a || c === 0x2c;
+      if (!blank && !inWord) words++;
+      inWord = !blank;
+    }
+    sink += words;
+  }
+};
+const objectPerWord = () => {
+  for (const t of texts) {
+    const words = [];
+    let start = 0;
+    for (let i = 0; i <= t.length; i++) {
+      const c = i < t.length ? t.charCodeAt(i) : 0x20;
+      if (c === 0x20 || c === 0x0a) {
+        if (i > start) words.push({ start, end: i, text: t.slice(start, i) });
+        start = i + 1;
+      }
+    }
+    sink += words.length;
+  }
+};
+
 let ours = Infinity;
 let floor = Infinity;
+let scan = Infinity;
+let objects = Infinity;
 for (let r = 0; r < 3; r++) {
   ours = Math.min(ours, time(() => { for (const t of texts) core.checkNote(t); }));
   floor = Math.min(floor, time(() => { for (const j of jsons) JSON.parse(j); }));
+  scan = Math.min(scan, time(scanCharacters));
+  objects = Math.min(objects, time(objectPerWord));
 }
+if (sink < 0) console.log(sink); // keeps the floors' work from being optimised away
 
 const dir = mkdtempSync(join(tmpdir(), 'pneumark-bench-'));
 texts.forEach((t, i) => {
@@ -64,7 +103,10 @@ const line = (what, s, bytes) => console.log(`${what.padEnd(40)} ${s.toFixed(2).
 line('analysis in process (checkNote)', ours, noteBytes);
 line('  its first pass (cold, as a run is)', cold, noteBytes);
 line('JSON.parse of the same corpus (floor)', floor, jsonBytes);
+line('  each character looked at once (JS)', scan, noteBytes);
+line('  one object per word (JS)', objects, noteBytes);
 line('pneumark check (whole corpus, wall)', check.s, noteBytes);
 line('pneumark check --jobs 0 (one thread)', checkOneThread.s, noteBytes);
 line('pneumark export --format csv (wall)', exportCsv.s, noteBytes);
 console.log(`analysis / JSON.parse time ratio: ${(ours / floor).toFixed(1)}× (target ≤ 3×); check of the corpus: ${check.s.toFixed(1)} s (target < 10 s)`);
+console.log(`floors / JSON.parse, nothing analysed: one look at each character ${(scan / floor).toFixed(2)}×, one object per word ${(objects / floor).toFixed(2)}×`);
