@@ -132,7 +132,7 @@ describe('ranges and fixes', () => {
   });
 
   it('every placeholder leaves the line free of privacy findings', () => {
-    for (const phrase of ['name: Jane Roe', 'MS JANE ROE', 'daughter - Anne', 'born 1961-03-12', '4 March 2026', '12 March 61', '+44 20 7946 0958', 'NHS 943 476 5919', 'SW1A 1AA', '12345-6789']) {
+    for (const phrase of ['name: Jane Roe', 'MS JANE ROE', 'daughter - Anne', 'born 1961-03-12', '4 March 2026', '12 March 61', '+44 20 7946 0958', 'NHS 999 123 4578', 'AA9A 9AA', '00345-6789']) {
       const note = `note      ${phrase}`;
       const edits = checkNote(note).findings.filter((f) => isPrivacyCode(f.code)).flatMap((f) => f.fixes.flatMap((x) => x.edits));
       expect(edits.length, phrase).toBeGreaterThan(0);

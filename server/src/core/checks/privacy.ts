@@ -117,14 +117,14 @@ export const emailAddress = privacyCheck('PN505', 'email-address', 'email', 'E-m
 }, (m) => `\`${m.text}\` is an e-mail address; remove it or write [email].`);
 
 export const recordNumber = privacyCheck('PN506', 'record-number', 'record-number', 'Record or identity number', {
-  fires: 'A record-number-like identifier: 5 digits or more after `MRN`, `NHS`, `hospital number`, `ID`, `SSN`, `medicare` and similar cues; without a cue, 7 digits or more in one run (`1234567`, not round quantities like `1000000`), 1 to 3 capitals and 6 digits (`AB123456`), a 10-digit NHS number with a valid check digit (`943 476 5919`), or a social security shape (`123-45-6789`). A number followed by a unit is a quantity, even after a cue (`record 12500 mL out`).',
+  fires: 'A record-number-like identifier: 5 digits or more after `MRN`, `NHS`, `hospital number`, `ID`, `SSN`, `medicare` and similar cues; without a cue, 7 digits or more in one run (`1234567`, not round quantities like `1000000`), 1 to 3 capitals and 6 digits (`AB123456`), a 10-digit NHS number with a valid check digit (`999 123 4578`), or a social security shape (`123-45-6789`). A number followed by a unit is a quantity, even after a cue (`record 12500 mL out`).',
   example: 'note      MRN 1234567',
   fix: `Remove it or write \`[id]\` (the quick fix does it). Link notes to records outside the note, never inside it. ${OFF}`,
 }, (m) => `\`${m.text}\` looks like a record or identity number${after(m)}; remove it or write [id].`);
 
 export const postalCode = privacyCheck('PN507', 'postal-code', 'postal-code', 'Postal code', {
-  fires: 'A postal code in a shape clinical text does not produce: a UK postcode in capitals (`SW1A 1AA`), a US ZIP+4 (`12345-6789`), a 5-digit ZIP after a comma and a state (`Springfield, IL 62704`), or after `postcode`, `zip` or `address` a UK, Canadian or US code in any case.',
-  example: 'note      lives near SW1A 1AA',
+  fires: 'A postal code in a shape clinical text does not produce: a UK postcode in capitals (`AA9A 9AA`), a US ZIP+4 (`00345-6789`), a 5-digit ZIP after a comma and a state (`Fernleigham, IL 00427`), or after `postcode`, `zip` or `address` a UK, Canadian or US code in any case.',
+  example: 'note      lives near AA9A 9AA',
   fix: `Remove it or write \`[postcode]\` (the quick fix does it). Where altitude matters, the \`place\` line takes it (\`place altitude 1650 m\`). ${OFF}`,
 }, (m) => `\`${m.text}\` looks like a postal code${after(m)}; remove it or write [postcode].`);
 

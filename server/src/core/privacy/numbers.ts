@@ -1,6 +1,6 @@
 /**
  * Phone numbers and record numbers: runs of digit groups (`+44 20 7946 0958`, `(555) 010-1234`,
- * `943 476 5919`, `1234567`) and letter-and-digit identifiers (`AB123456`). One family, because
+ * `999 123 4578`, `1234567`) and letter-and-digit identifiers (`AB123456`). One family, because
  * the same digits can be either: a cue word before them decides (`tel`, `MRN`, `NHS` …), then the
  * shape does. Clinical numbers are kept out by the shapes: decimals, slashes, times and units end
  * a candidate, and lists of small numbers (`118 120 96`) fit no phone shape.

@@ -1,12 +1,12 @@
 /**
  * Postal codes, conservatively: only shapes that clinical text does not produce.
- * - UK postcodes in capitals with their letter rules (`SW1A 1AA`, `M1 1AE`): the inward part
+ * - UK postcodes in capitals with their letter rules (`AA9A 9AA`, `A1 1AE`): the inward part
  *   never uses C, I, K, M, O or V, so `V1 2MM` or `T2 4HR`-like clinical shorthand stays silent.
- * - US ZIP+4 (`12345-6789`).
- * - A 5-digit ZIP after a comma and a US state abbreviation (`Springfield, IL 62704`), so
+ * - US ZIP+4 (`00345-6789`).
+ * - A 5-digit ZIP after a comma and a US state abbreviation (`Fernleigham, IL 00427`), so
  *   `Head CT 12345` stays silent.
  * - After a postcode cue (`postcode`, `post code`, `postal code`, `zip`, `zip code`, `address`):
- *   a UK postcode in any case, a Canadian one (`K1A 0B1`), a ZIP or ZIP+4.
+ *   a UK postcode in any case, a Canadian one (`Z1Z 9Z9`), a ZIP or ZIP+4.
  */
 import { endsWithPhrase, isAlnumAt, isAsciiUpperAt, isBlankGap, isDigitAt, isLetterAt, wordsBefore, type Run } from './text';
 import { match, type PrivacyMatch } from './types';
@@ -96,7 +96,7 @@ export function findPostalCodes(text: string, runs: readonly Run[], out: Privacy
   // Each shape below reads the cue (`isPostcodeCue`) only once the run has that shape.
   for (let i = 0; i < runs.length; i++) {
     const a = runs[i]!;
-    // Every code starts with five digits (a ZIP) or with two to four letters and digits (`SW1A`, `K1A`).
+    // Every code starts with five digits (a ZIP) or with two to four letters and digits (`AA9A`, `Z1Z`).
     if (a.kind === 'letters' || (a.kind === 'digits' ? a.text.length !== 5 : a.text.length > 4)) continue;
     const b = runs[i + 1];
     const gap = b ? text.slice(a.end, b.start) : '';

@@ -43,7 +43,7 @@ export function scanPart(source: string, from: number, to: number): readonly Pri
   const input = from === 0 && end === source.length ? source : source.slice(from, end);
   // The runs are read once for every detector. A detector runs only when the text has what each
   // of its identifiers needs: dates a digit, phone and record numbers four (five in a group of
-  // digits, or four in a run with letters), postal codes two (`M1 1AE`), e-mail addresses an `@`,
+  // digits, or four in a run with letters), postal codes two (`A1 1AE`), e-mail addresses an `@`,
   // names a capital (after a cue, which `findNames` looks for itself).
   const runs = runsOf(input);
   const all: PrivacyMatch[] = [];
@@ -73,7 +73,7 @@ export function scanPart(source: string, from: number, to: number): readonly Pri
 /**
  * The words in lower case that let a text with one to three digits and no capital through: the
  * full month names that count in lower case (dates.ts: `june 4`) and the first word of each
- * postcode cue (postal-codes.ts: `postcode m1 1ae`). Each must stand as a word of its own.
+ * postcode cue (postal-codes.ts: `postcode a1 1ae`). Each must stand as a word of its own.
  */
 const LOWER_CASE_CUE_WORDS: ReadonlySet<string> = new Set([...LOWER_CASE_MONTHS, ...POSTCODE_CUE_FIRST_WORDS]);
 const CUE_WORD_INITIALS = new Set([...LOWER_CASE_CUE_WORDS].map((word) => word.charCodeAt(0)));
