@@ -50,6 +50,12 @@ describe('oxygenation, ventilation and respiratory failure', () => {
     expect(r['hypoxaemia-mechanism']).toMatch(/^Hypoxaemia consistent with hypoventilation \(PaCO2 70 mmHg\)\. The A–a gradient \(\d mmHg\) is within the age-based normal of 14 mmHg\.$/);
   });
 
+  it('type 1 is hypoxaemia without hypercapnia: a PaCO2 above 45 but not above 50 mmHg is named raised, not normal (type 1 and 2 by PaCO2: common practice, no source; hypercapnia > 50 mmHg pinned in shared/REFERENCES.md)', () => {
+    expect(readings('@ 08:00\noxygen room air\nabg 7.36/48/55/26.5')['respiratory-failure']).toBe('Consistent with type 1 (hypoxaemic) respiratory failure: hypoxaemia without hypercapnia, PaCO2 mildly raised (PaO2 55 mmHg, below 60 mmHg; PaCO2 48 mmHg, not above 50 mmHg).');
+    // 45 mmHg is the upper normal itself: still normal.
+    expect(readings('@ 08:00\noxygen room air\nabg 7.38/45/55/26')['respiratory-failure']).toBe('Consistent with type 1 (hypoxaemic) respiratory failure: hypoxaemia with normal or low PaCO2 (PaO2 55 mmHg, below 60 mmHg; PaCO2 45 mmHg, not above 50 mmHg).');
+  });
+
   it('reads hypoxaemia at altitude with low PaCO2 as type 1 failure with a normal gradient', () => {
     // Arterial samples from climbers at 8,400 m, PB 272 mmHg: mean PaO2 24.6 mmHg, PaCO2 13.3 mmHg,
     // pH 7.53; the calculated A–a gradient was about 5 mmHg (Grocott MPW et al., NEJM 2009;360:140–149,

@@ -416,8 +416,14 @@ function type2Text(g: GasFacts): string {
   return `Consistent with type 2 (hypercapnic) respiratory failure: hypoxaemia with hypercapnia (${o2Words(g)}, ${o2Side(g)}; ${co2Words(g)}).`;
 }
 
+/**
+ * Type 1 is hypoxaemia without hypercapnia. Its PaCO2 is normal or low up to the upper normal
+ * (45 mmHg); between that and the hypercapnia threshold (50 mmHg by default) it is raised, though
+ * not hypercapnia, and the reading says so rather than calling it normal.
+ */
 function type1Text(g: GasFacts): string {
-  return `Consistent with type 1 (hypoxaemic) respiratory failure: hypoxaemia with normal or low PaCO2 (${o2Words(g)}, ${o2Side(g)}; ${co2Words(g)}).`;
+  const raised = sideOf(g.paco2!.value, UPPER_NORMAL_PACO2_MMHG, g.co2Resolution) > 0;
+  return `Consistent with type 1 (hypoxaemic) respiratory failure: hypoxaemia ${raised ? 'without hypercapnia, PaCO2 mildly raised' : 'with normal or low PaCO2'} (${o2Words(g)}, ${o2Side(g)}; ${co2Words(g)}).`;
 }
 
 function type2OnOxygenText(g: GasFacts): string {
