@@ -469,7 +469,8 @@ function mechanism(g: GasFacts): Interpretation {
     return new Reading('hypoxaemia-mechanism', BASIS_MECHANISM_NOT_READ, g, false, 'Mechanism of hypoxaemia not assessed: the FiO2, pressure, PaCO2 and PaO2 stated cannot go together, so there is no A–a gradient (see PN401).');
   }
   if (!pio2 || !gradient || !paco2) {
-    const need = !paco2 ? 'pco2' : c.fio2Need();
+    // What the PiO2 lacks: the FiO2, or a usable place.
+    const need = !paco2 ? 'pco2' : wordList(c.lacking('pio2'));
     return new Reading('hypoxaemia-mechanism', BASIS_NONE, g, false, `Mechanism of hypoxaemia not assessed: add ${need} to get the A–a gradient.`);
   }
   const limit = upper?.value ?? AA_UPPER_NORMAL_NO_AGE_MMHG;
