@@ -40,3 +40,23 @@ describe('the same gas at PB 760 mmHg', () => {
     expect(r['hypoxaemia-mechanism']).toBe('Hypoxaemia consistent with a mix of hypoventilation (PaCO2 58 mmHg) and a raised A–a gradient (37 mmHg, above 14 mmHg): V/Q mismatch, shunt or a diffusion limit.');
   });
 });
+
+describe('a place stated but not usable', () => {
+  // 12,000 written without a unit reads as metres, beyond any summit (PN204: ordinary in feet);
+  // 80 bare in an mmHg note is implausible as mmHg (ordinary as kPa). Neither is used, and sea
+  // level is not assumed in their place: 12,000 ft is 3,658 m, where West's model atmosphere gives
+  // PB ≈ 496 mmHg (West JB, J Appl Physiol 1996;81:1850–1854, from memory), so PiO2 = 0.21 ×
+  // (496 − 47) ≈ 94 mmHg, not the 150 mmHg of sea level (inspired PO2: common practice).
+  const notes = [
+    'patient age 40 y\nplace altitude 12000\n@ 08:00\noxygen room air\nabg 7.40/40/50/24',
+    'patient age 40 y\nplace barometric 80\n@ 08:00\noxygen room air\nabg 7.40/40/50/24',
+  ];
+  it.each(notes)('gives no PB, PiO2, PAO2 or A–a gradient, and says what to add: %s', (note) => {
+    expect(() => derived(note, 'pio2')).toThrow(/a usable barometric pressure or altitude/);
+    expect(() => derived(note, 'aa_gradient')).toThrow(/not derived/);
+    expect(readings(note)['hypoxaemia-mechanism']).toBe('Mechanism of hypoxaemia not assessed: add a usable barometric pressure or altitude (the one on the place line is not used: see its finding) to get the A–a gradient.');
+  });
+  it('with the unit written, the same altitude gives PiO2 ≈ 94 mmHg (West 1996 model, from memory)', () => {
+    expect(derived('patient age 40 y\nplace altitude 12000 ft\n@ 08:00\noxygen room air\nabg 7.40/40/50/24', 'pio2').value).toBeCloseTo(94.2, 0);
+  });
+});

@@ -67,8 +67,8 @@ describe('PaCO2 at 50 mmHg and just either side', () => {
   });
 
   it('6.7 kPa with a PaO2 of 7.9 kPa is type 1, as 50 mmHg with 59 mmHg is; 6.8 kPa is type 2', () => {
-    expect(readings(`${KPA}abg ph 7.36, pco2 6.7, po2 7.9, hco3 27.6`)['respiratory-failure']).toBe('Consistent with type 1 (hypoxaemic) respiratory failure: hypoxaemia with normal or low PaCO2 (PaO2 7.9 kPa (59 mmHg), below 8.0 kPa; PaCO2 6.7 kPa (50 mmHg), not above 6.7 kPa).');
-    expect(readings(`${AIR}abg 7.36/50/59/27.5`)['respiratory-failure']).toBe('Consistent with type 1 (hypoxaemic) respiratory failure: hypoxaemia with normal or low PaCO2 (PaO2 59 mmHg, below 60 mmHg; PaCO2 50 mmHg, not above 50 mmHg).');
+    expect(readings(`${KPA}abg ph 7.36, pco2 6.7, po2 7.9, hco3 27.6`)['respiratory-failure']).toBe('Consistent with type 1 (hypoxaemic) respiratory failure: hypoxaemia without hypercapnia, PaCO2 mildly raised (PaO2 7.9 kPa (59 mmHg), below 8.0 kPa; PaCO2 6.7 kPa (50 mmHg), not above 6.7 kPa).');
+    expect(readings(`${AIR}abg 7.36/50/59/27.5`)['respiratory-failure']).toBe('Consistent with type 1 (hypoxaemic) respiratory failure: hypoxaemia without hypercapnia, PaCO2 mildly raised (PaO2 59 mmHg, below 60 mmHg; PaCO2 50 mmHg, not above 50 mmHg).');
     const r = readings(`${KPA}abg ph 7.35, pco2 6.8, po2 7.9, hco3 27.6`);
     expect(r['respiratory-failure']).toBe('Consistent with type 2 (hypercapnic) respiratory failure: hypoxaemia with hypercapnia (PaO2 7.9 kPa (59 mmHg), below 8.0 kPa; PaCO2 6.8 kPa (51 mmHg), above 6.7 kPa).');
     expect(r.ventilation).toBe('PaCO2 6.8 kPa (51 mmHg): consistent with hypercapnia (above 6.7 kPa): ventilation is not clearing CO2.');

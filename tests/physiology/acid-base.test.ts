@@ -169,6 +169,7 @@ const ALK = 'metabolic alkalosis rule: Berend et al. 2014';
 const RESP = 'respiratory rules: Narins & Emmett 1980; Adrogué & Madias 2010 (from memory)';
 const STEPS = 'stepwise approach: Berend et al. 2014';
 const DELTA = 'delta ratio: Rastegar 2007 (from memory)';
+const COMP = 'uncompensated, partially and fully compensated: common practice, no source';
 
 const classifierCases: readonly ClassifierCase[] = [
   { name: `normal gas (reference intervals, common practice)`, input: { ph: 7.4, paco2Mmhg: 40, hco3MmolL: 24 }, primary: 'normal', compensation: 'not-applicable', additional: [] },
@@ -195,6 +196,11 @@ const classifierCases: readonly ClassifierCase[] = [
   { name: `chronic respiratory alkalosis (${RESP})`, input: { ph: 7.49, paco2Mmhg: 20, hco3MmolL: 15 }, primary: 'respiratory-alkalosis', compensation: 'appropriate', chronicity: 'chronic', additional: [] },
   { name: `chronic respiratory alkalosis with a normal pH, fully compensated (${RESP}; ${STEPS})`, input: { ph: 7.45, paco2Mmhg: 25, hco3MmolL: 17 }, primary: 'respiratory-alkalosis', compensation: 'appropriate', chronicity: 'chronic', additional: [], fullyCompensated: true },
   { name: `respiratory alkalosis + metabolic alkalosis: HCO3 above the acute range (${RESP})`, input: { ph: 7.56, paco2Mmhg: 28, hco3MmolL: 25 }, primary: 'respiratory-alkalosis', compensation: 'insufficient', chronicity: null, additional: ['metabolic-alkalosis'] },
+  // "Fully compensated" only when the compensating component has itself left its reference interval
+  { name: `metabolic acidosis with a normal pH and PaCO2 below 35: fully compensated (${W}; ${COMP})`, input: { ph: 7.36, paco2Mmhg: 33, hco3MmolL: 18 }, primary: 'metabolic-acidosis', compensation: 'appropriate', additional: [], fullyCompensated: true },
+  { name: `metabolic alkalosis with a normal pH and PaCO2 still 40: not called fully compensated, nothing compensated (${ALK}; ${COMP})`, input: { ph: 7.44, paco2Mmhg: 40, hco3MmolL: 26.5 }, primary: 'metabolic-alkalosis', compensation: 'appropriate', additional: [], fullyCompensated: false },
+  { name: `respiratory alkalosis with a normal pH and HCO3 22 (not below 22): not called fully compensated (${RESP}; ${COMP})`, input: { ph: 7.44, paco2Mmhg: 33, hco3MmolL: 22 }, primary: 'respiratory-alkalosis', compensation: 'appropriate', chronicity: 'acute-or-chronic', additional: [], fullyCompensated: false },
+  { name: `respiratory acidosis with a normal pH and HCO3 above 26: fully compensated (${RESP}; ${COMP})`, input: { ph: 7.36, paco2Mmhg: 48, hco3MmolL: 26.5 }, primary: 'respiratory-acidosis', compensation: 'appropriate', additional: [], fullyCompensated: true },
   // Anion gap and delta ratio
   { name: `normal-looking gas hiding high-gap acidosis + metabolic alkalosis (AG 32, ${DELTA})`, input: { ph: 7.35, paco2Mmhg: 40, hco3MmolL: 22, anionGapMmolL: 32 }, primary: 'normal', compensation: 'not-applicable', additional: ['metabolic-acidosis', 'metabolic-alkalosis'], acidosisKind: 'high-anion-gap' },
   { name: `high-gap metabolic acidosis + metabolic alkalosis, delta ratio 3 (${W}; ${DELTA})`, input: { ph: 7.32, paco2Mmhg: 35, hco3MmolL: 18, anionGapMmolL: 30 }, primary: 'metabolic-acidosis', compensation: 'appropriate', additional: ['metabolic-alkalosis'], acidosisKind: 'high-anion-gap' },

@@ -71,7 +71,7 @@ export const ventilationReading = interpretationCheck('PN411', 'ventilation-read
   fix: READING_FIX,
 });
 
-export const respiratoryFailureReading = interpretationCheck('PN412', 'respiratory-failure-reading', 'Respiratory failure reading', ['respiratory-failure', 'hypoxaemia-mechanism'], 'type 1: hypoxaemia with normal or low PaCO2; type 2: hypoxaemia with hypercapnia (common practice, no source); mechanism from PiO2, A–a gradient and PaCO2 (alveolar gas equation)', {
+export const respiratoryFailureReading = interpretationCheck('PN412', 'respiratory-failure-reading', 'Respiratory failure reading', ['respiratory-failure', 'hypoxaemia-mechanism'], 'type 1: hypoxaemia without hypercapnia (normal or low PaCO2, or raised but not above the hypercapnia threshold); type 2: hypoxaemia with hypercapnia (common practice, no source); mechanism from PiO2, A–a gradient and PaCO2 (alveolar gas equation)', {
   fires: 'The gas is consistent with type 1 or type 2 respiratory failure; the mechanism of hypoxaemia the values are consistent with (low inspired oxygen, hypoventilation, a raised A–a gradient, or a mix) is named.',
   example: '@ 08:00\noxygen room air\nabg 7.28/62/51/28',
   fix: READING_FIX,

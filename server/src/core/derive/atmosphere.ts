@@ -2,7 +2,7 @@
 import { SOURCES, WATER_VAPOUR_37C_MMHG, barometricFromAltitudeStandard, barometricFromAltitudeWest, inspiredPo2Humidified, waterVapourPressureMmhg } from '../physiology';
 import { formatNumber } from '../util/format';
 import { fieldById } from '../fields/registry';
-import { defineDerived, type DeriveContext, type Term, type ValueExtras } from './context';
+import { defineDerived, type DeriveContext, type Outcome, type Term, type ValueExtras } from './context';
 
 export const SEA_LEVEL_MMHG = 760;
 
@@ -25,9 +25,15 @@ export const barometric = defineDerived({
       const pb = west ? barometricFromAltitudeWest(alt.value) : barometricFromAltitudeStandard(alt.value);
       return c.value(pb, [alt], west ? PB_WEST : PB_STANDARD);
     }
+    // A place is stated but cannot be used (a unit in doubt, PN204; an impossible value, PN301):
+    // the patient is somewhere, not at sea level, so no pressure is assumed until it is mended.
+    if (c.input('barometric') !== null || c.input('altitude') !== null) return PLACE_NOT_USABLE;
     return c.value(SEA_LEVEL_MMHG, SEA_LEVEL_TERMS, PB_SEA_LEVEL);
   },
 });
+
+/** What a place that is stated but cannot be used lacks: said once for every timepoint. */
+const PLACE_NOT_USABLE: Outcome = { kind: 'missing', needs: ['a usable barometric pressure or altitude (the one on the place line is not used: see its finding)'] };
 
 // The formulas and notes of the barometric pressure, and the sea-level input: one object each for every timepoint.
 const PB_STATED: ValueExtras = { formula: 'PB as stated' };
@@ -117,7 +123,7 @@ export const pio2 = defineDerived({
   compute(c) {
     const fio2 = c.fio2();
     const pb = c.derived('barometric', 'PB');
-    if (!fio2 || !pb) return c.missing([fio2, c.fio2Need()], [pb, 'place']);
+    if (!fio2 || !pb) return c.missing([fio2, c.fio2Need()], [pb, c.lacking('barometric')]);
     const ph2o = waterVapourTerm(c);
     if (ph2o === null) return c.value(null, []);
     return c.value(inspiredPo2Humidified(fio2.value, pb.value, ph2o.value), [fio2, pb, ph2o]);

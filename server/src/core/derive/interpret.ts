@@ -416,8 +416,14 @@ function type2Text(g: GasFacts): string {
   return `Consistent with type 2 (hypercapnic) respiratory failure: hypoxaemia with hypercapnia (${o2Words(g)}, ${o2Side(g)}; ${co2Words(g)}).`;
 }
 
+/**
+ * Type 1 is hypoxaemia without hypercapnia. Its PaCO2 is normal or low up to the upper normal
+ * (45 mmHg); between that and the hypercapnia threshold (50 mmHg by default) it is raised, though
+ * not hypercapnia, and the reading says so rather than calling it normal.
+ */
 function type1Text(g: GasFacts): string {
-  return `Consistent with type 1 (hypoxaemic) respiratory failure: hypoxaemia with normal or low PaCO2 (${o2Words(g)}, ${o2Side(g)}; ${co2Words(g)}).`;
+  const raised = sideOf(g.paco2!.value, UPPER_NORMAL_PACO2_MMHG, g.co2Resolution) > 0;
+  return `Consistent with type 1 (hypoxaemic) respiratory failure: hypoxaemia ${raised ? 'without hypercapnia, PaCO2 mildly raised' : 'with normal or low PaCO2'} (${o2Words(g)}, ${o2Side(g)}; ${co2Words(g)}).`;
 }
 
 function type2OnOxygenText(g: GasFacts): string {
@@ -463,7 +469,8 @@ function mechanism(g: GasFacts): Interpretation {
     return new Reading('hypoxaemia-mechanism', BASIS_MECHANISM_NOT_READ, g, false, 'Mechanism of hypoxaemia not assessed: the FiO2, pressure, PaCO2 and PaO2 stated cannot go together, so there is no A–a gradient (see PN401).');
   }
   if (!pio2 || !gradient || !paco2) {
-    const need = !paco2 ? 'pco2' : c.fio2Need();
+    // What the PiO2 lacks: the FiO2, or a usable place.
+    const need = !paco2 ? 'pco2' : wordList(c.lacking('pio2'));
     return new Reading('hypoxaemia-mechanism', BASIS_NONE, g, false, `Mechanism of hypoxaemia not assessed: add ${need} to get the A–a gradient.`);
   }
   const limit = upper?.value ?? AA_UPPER_NORMAL_NO_AGE_MMHG;

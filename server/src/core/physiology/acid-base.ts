@@ -31,6 +31,8 @@ export const SOURCES = Object.freeze({
     'Anion gap = Na − (Cl + HCO3), optionally + K; normal about 12 mmol/L (8–12 with modern analysers): common practice, no source.',
   'acid-base-reference-intervals':
     'Arterial reference intervals pH 7.35–7.45, PaCO2 35–45 mmHg, HCO3 22–26 mmol/L: common practice, no source.',
+  'compensation-terms':
+    'Uncompensated (pH abnormal, the other component in its reference interval), partially compensated (pH abnormal, both components beyond their intervals in opposite directions) and fully compensated (pH in its interval, both components beyond their intervals in opposite directions): common practice, no source.',
   'pneumark-consistency-tolerance':
     'Tolerance for reported vs calculated HCO3 (HCO3_CONSISTENCY_TOLERANCE): Pneumark’s own choice, no source; reasoning given beside the constant.',
 } as const);
@@ -206,7 +208,13 @@ export interface AcidBaseClassification {
   readonly phStatus: PhStatus;
   readonly primary: PrimaryAcidBaseFinding;
   readonly compensation: CompensationStatus;
-  /** pH within its reference interval while a single primary disorder is appropriately compensated. */
+  /**
+   * pH within its reference interval while a single primary disorder is appropriately compensated
+   * and the compensating component has itself moved beyond its reference interval (PaCO2 below 35
+   * or above 45 mmHg for a metabolic primary, HCO3 below 22 or above 26 mmol/L for a respiratory
+   * one). A normal pH with the other component still in its interval is a mild disorder, not a
+   * compensated one: nothing has compensated. Source: `compensation-terms`.
+   */
   readonly fullyCompensated: boolean;
   readonly expected: ExpectedCompensation | null;
   /** Timing of a respiratory primary; `null` otherwise or when a second disorder blurs it. */
@@ -569,6 +577,28 @@ function copyOf(list: readonly AcidBaseDisorder[]): AcidBaseDisorder[] {
   return copy;
 }
 
+/**
+ * Whether the component that compensates a single primary disorder has moved beyond its
+ * reference interval, the way the compensation moves it: PaCO2 below 35 mmHg for a metabolic
+ * acidosis and above 45 for a metabolic alkalosis (compared at the resolution the PaCO2 was
+ * written with), HCO3 above 26 mmol/L for a respiratory acidosis and below 22 for a respiratory
+ * alkalosis. Source: `compensation-terms`.
+ */
+function compensatorMoved(primary: PrimaryAcidBaseFinding, paco2: number, hco3: number, paco2Resolution: number): boolean {
+  switch (primary) {
+    case 'metabolic-acidosis':
+      return sideOf(paco2, PACO2_NORMAL_MMHG.low, paco2Resolution) < 0;
+    case 'metabolic-alkalosis':
+      return sideOf(paco2, PACO2_NORMAL_MMHG.high, paco2Resolution) > 0;
+    case 'respiratory-acidosis':
+      return hco3 > HCO3_NORMAL_MMOL_L.high;
+    case 'respiratory-alkalosis':
+      return hco3 < HCO3_NORMAL_MMOL_L.low;
+    default:
+      return false;
+  }
+}
+
 /** Whether a disorder is among the primary ones or those added so far. */
 function identifiedIn(d: AcidBaseDisorder, fromPrimary: readonly AcidBaseDisorder[], additional: readonly AcidBaseDisorder[]): boolean {
   return fromPrimary.includes(d) || additional.includes(d);
@@ -638,7 +668,7 @@ export function classifyAcidBase(input: AcidBaseInput): AcidBaseClassification |
     phStatus,
     primary,
     compensation,
-    fullyCompensated: phStatus === 'normal' && singlePrimary && compensation === 'appropriate',
+    fullyCompensated: phStatus === 'normal' && singlePrimary && compensation === 'appropriate' && compensatorMoved(primary, paco2, hco3, resolution),
     expected,
     respiratoryChronicity: chronicity,
     additional,
