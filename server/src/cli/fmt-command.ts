@@ -11,7 +11,7 @@ import { z } from 'zod';
 import { checkNote } from '../core/check-note';
 import { formatNote } from '../core/service/format';
 import { readSnapshot, writeIfUnchanged, type BeforeRename } from '../node/atomic-write';
-import { listInputs, looksBinary, MAX_NOTE_BYTES, readNote, utf8Problem } from './inputs';
+import { listInputs, looksBinary, MAX_NOTE_BYTES, readNote, readProblem, utf8Problem } from './inputs';
 import { EXIT, HELP, parse, UsageError, validate, type Io } from './args';
 import { visible } from './visible';
 
@@ -63,7 +63,7 @@ export function runFmt(args: readonly string[], io: Io): number {
     try {
       snapshot = readSnapshot(abs);
     } catch (error) {
-      io.stderr.write(`pneumark: ${shown}: cannot be read (${(error as NodeJS.ErrnoException).code ?? 'error'})\n`);
+      io.stderr.write(`pneumark: ${shown}: ${readProblem(abs, error)}\n`);
       failed = true;
       continue;
     }
