@@ -82,8 +82,8 @@ Without --check or --write, prints the formatted note (one file only).
 Options:
   --check                    list notes whose layout would change; exit 1 if any
   --write                    rewrite notes in place, atomically; a note with syntax errors is left
-                             alone unless --force, and a note changed on disk while being formatted
-                             is never overwritten
+                             alone unless --force, and a read-only note, or one changed on disk
+                             while being formatted, is never overwritten
   --force                    also rewrite notes that have syntax errors (their broken lines are kept
                              as they are)
   --exclude PATTERN          leave out paths matching PATTERN (gitignore syntax; repeatable)`,
