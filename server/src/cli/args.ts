@@ -124,7 +124,8 @@ const NEGATIVE_NUMBER = /^-\d/;
 /**
  * Parses options strictly; each command validates the values with zod. A negative number right
  * after an option that takes a value is that option's value (`--shift-days -3`), as
- * `--shift-days=-3` would be. Errors are one line that names the option as typed.
+ * `--shift-days=-3` would be; an option that takes one value may be given once. Errors are one
+ * line that names the option as typed.
  */
 export function parse(args: readonly string[], options: OptionSpec): { positionals: string[]; values: Record<string, string | boolean | string[] | undefined> } {
   const joined: string[] = [];
@@ -141,10 +142,26 @@ export function parse(args: readonly string[], options: OptionSpec): { positiona
     }
   }
   try {
-    const parsed = parseArgs({ args: joined, options: { help: { type: 'boolean', short: 'h' }, ...options }, allowPositionals: true, strict: true });
+    const parsed = parseArgs({ args: joined, options: { help: { type: 'boolean', short: 'h' }, ...options }, allowPositionals: true, strict: true, tokens: true });
+    twice(parsed.tokens, options);
     return { positionals: parsed.positionals, values: parsed.values as Record<string, string | boolean | string[] | undefined> };
   } catch (error) {
+    if (error instanceof UsageError) throw error;
     throw new UsageError(optionProblem(error));
+  }
+}
+
+/**
+ * An option that takes one value, given more than once (`--format json … --format sarif`), is a
+ * usage error rather than the last one silently winning: in a script, one of the two is a mistake.
+ */
+function twice(tokens: ReturnType<typeof parseArgs>['tokens'], options: OptionSpec): void {
+  const seen = new Map<string, string>();
+  for (const token of tokens ?? []) {
+    if (token.kind !== 'option' || options[token.name]?.type !== 'string' || options[token.name]?.multiple) continue;
+    const before = seen.get(token.name);
+    if (before !== undefined) throw new UsageError(`--${token.name} is given twice (${JSON.stringify(before)}, then ${JSON.stringify(token.value ?? '')}); give it once`);
+    seen.set(token.name, token.value ?? '');
   }
 }
 

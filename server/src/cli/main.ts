@@ -121,7 +121,7 @@ async function check(args: readonly string[], io: Io): Promise<number> {
   if (total.error > 0) return EXIT.findings;
   const warnings = total.warning;
   if (opts.maxWarnings !== undefined && warnings > opts.maxWarnings) {
-    io.stderr.write(`pneumark: ${warnings} warnings, more than --max-warnings ${opts.maxWarnings}\n`);
+    io.stderr.write(`pneumark: ${warnings} warning${warnings === 1 ? '' : 's'}, more than --max-warnings ${opts.maxWarnings}\n`);
     return EXIT.findings;
   }
   return EXIT.ok;
