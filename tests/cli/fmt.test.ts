@@ -152,3 +152,17 @@ describe('fmt --write on a read-only note', () => {
     expect(await run(['fmt', '--write', 'signed-off.pneu'], io(dir))).toBe(0);
   });
 });
+
+describe('fmt --force', () => {
+  it('without --write is a usage error, not silently ignored', async () => {
+    const dir = tempDir();
+    writeFileSync(join(dir, 'n.pneu'), messy);
+    for (const args of [['fmt', '--force', 'n.pneu'], ['fmt', '--check', '--force', 'n.pneu']]) {
+      const out = io(dir);
+      expect(await run(args, out), args.join(' ')).toBe(2);
+      expect(out.out()).toBe('');
+      expect(out.err()).toBe('pneumark fmt: --force: only applies to --write (it lets --write rewrite notes with syntax errors)\n');
+    }
+    expect(readFileSync(join(dir, 'n.pneu'), 'utf8')).toBe(messy);
+  });
+});

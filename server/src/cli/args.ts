@@ -84,8 +84,8 @@ Options:
   --write                    rewrite notes in place, atomically; a note with syntax errors is left
                              alone unless --force, and a read-only note, or one changed on disk
                              while being formatted, is never overwritten
-  --force                    also rewrite notes that have syntax errors (their broken lines are kept
-                             as they are)
+  --force                    with --write: also rewrite notes that have syntax errors (their broken
+                             lines are kept as they are)
   --exclude PATTERN          leave out paths matching PATTERN (gitignore syntax; repeatable)`,
   docs: `Usage: pneumark docs [--write FILE] [--grammar FILE] [--readme FILE]
 

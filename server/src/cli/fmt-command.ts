@@ -21,7 +21,9 @@ const fmtOptions = z.object({
   write: z.boolean().default(false),
   force: z.boolean().default(false),
   exclude: z.array(z.string().min(1).max(500)).max(100).default([]),
-}).refine((o) => !(o.check && o.write), { message: 'use either --check or --write, not both', path: ['check'] });
+}).refine((o) => !(o.check && o.write), { message: 'use either --check or --write, not both', path: ['check'] })
+  // --force lets --write rewrite notes with syntax errors; elsewhere it would be silently ignored.
+  .refine((o) => !o.force || o.write, { message: 'only applies to --write (it lets --write rewrite notes with syntax errors)', path: ['force'] });
 
 /** Test hook for the race and interruption tests. */
 export const fmtHooks: { beforeRename: BeforeRename | undefined } = { beforeRename: undefined };
