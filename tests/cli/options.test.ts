@@ -125,3 +125,15 @@ describe('--max-warnings', () => {
     expect(out.err()).toBe('pneumark: 1 warning, more than --max-warnings 0\n');
   });
 });
+
+describe('an empty path argument', () => {
+  it('is a usage error for every command, never the working folder (fmt --write "" would rewrite it all)', async () => {
+    const line = 'an empty argument is not a path (is a variable unset?); name a file, folder or pattern, or . for the working folder';
+    expect(await usageError(['check', ''])).toBe(`pneumark check: ${line}`);
+    expect(await usageError(['check', NOTE, ''])).toBe(`pneumark check: ${line}`);
+    expect(await usageError(['export', '', '--format', 'csv'])).toBe(`pneumark export: ${line}`);
+    expect(await usageError(['fmt', '--write', ''])).toBe(`pneumark fmt: ${line}`);
+    expect(await usageError(['fmt', '--check', ''])).toBe(`pneumark fmt: ${line}`);
+    expect(await usageError(['show', ''])).toBe(`pneumark show: ${line}`);
+  });
+});

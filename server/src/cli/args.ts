@@ -100,6 +100,14 @@ Options:
 export class UsageError extends Error {}
 
 /**
+ * An empty argument (`check "$NOTES"` with the variable unset) would resolve to the working
+ * folder and take in every note under it (`fmt --write ""` would rewrite them all): a usage error.
+ */
+export function refuseEmptyPaths(paths: readonly string[]): void {
+  if (paths.some((p) => p === '')) throw new UsageError('an empty argument is not a path (is a variable unset?); name a file, folder or pattern, or . for the working folder');
+}
+
+/**
  * An option that takes a whole number: only plain decimal digits (with a sign when `signed`), in
  * `min`–`max`. Anything else (an empty string, `0x10`, `1e3`, `1.5`, spaces) is refused with
  * `message` rather than read as some number: an option such as --shift-days must never silently

@@ -19,6 +19,7 @@ import { basename, dirname, isAbsolute, join, normalize, relative, resolve, sep 
 import ignore, { type Ignore } from 'ignore';
 import { globSync, isDynamicPattern, type FileSystemAdapter } from 'tinyglobby';
 import { CONFIG_FILE_NAME } from '../core/config';
+import { refuseEmptyPaths } from './args';
 
 /** Test hook: lists a folder in place of `fs.readdirSync` (a folder root cannot be kept out of otherwise). */
 export const inputHooks: { readdirSync: ((path: string, options: { withFileTypes: true }) => unknown) | undefined } = { readdirSync: undefined };
@@ -56,6 +57,7 @@ interface ArgumentYield {
 type ExclusionSource = '--exclude' | typeof IGNORE_FILE;
 
 export function listInputs(args: readonly string[], cwd: string, exclude: readonly string[] = []): InputList {
+  refuseEmptyPaths(args);
   const problems: NoteInput[] = [];
   /** Each path found, with the arguments that brought it in (the first decides its root). */
   const found = new Map<string, ArgumentYield[]>();
