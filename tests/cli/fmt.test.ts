@@ -124,3 +124,45 @@ describe('fmt printing a note', () => {
     expect(folder.out()).toBe('');
   });
 });
+
+describe('fmt --write on a read-only note', () => {
+  it('leaves it as it is, with one line and exit 2, and formats the others', async () => {
+    const dir = tempDir();
+    const locked = join(dir, 'signed-off.pneu');
+    writeFileSync(locked, messy);
+    chmodSync(locked, 0o444);
+    writeFileSync(join(dir, 'draft.pneu'), messy);
+    const out = io(dir);
+    expect(await run(['fmt', '--write', '.'], out)).toBe(2);
+    expect(out.err()).toBe('pneumark: signed-off.pneu: read-only (no permission to write it); not rewritten\n');
+    expect(out.out()).toBe('formatted draft.pneu\n');
+    expect(readFileSync(locked, 'utf8')).toBe(messy);
+    expect(statSync(locked).mode & 0o777).toBe(0o444);
+    expect(readFileSync(join(dir, 'draft.pneu'), 'utf8')).toBe(tidy);
+    // --force is about syntax errors, not permissions; --check still lists it.
+    expect(await run(['fmt', '--write', '--force', 'signed-off.pneu'], io(dir))).toBe(2);
+    expect(readFileSync(locked, 'utf8')).toBe(messy);
+    const checked = io(dir);
+    expect(await run(['fmt', '--check', '.'], checked)).toBe(1);
+    expect(checked.out()).toBe('signed-off.pneu\n');
+    // Already formatted: nothing to write, nothing to refuse.
+    chmodSync(locked, 0o644);
+    writeFileSync(locked, tidy);
+    chmodSync(locked, 0o444);
+    expect(await run(['fmt', '--write', 'signed-off.pneu'], io(dir))).toBe(0);
+  });
+});
+
+describe('fmt --force', () => {
+  it('without --write is a usage error, not silently ignored', async () => {
+    const dir = tempDir();
+    writeFileSync(join(dir, 'n.pneu'), messy);
+    for (const args of [['fmt', '--force', 'n.pneu'], ['fmt', '--check', '--force', 'n.pneu']]) {
+      const out = io(dir);
+      expect(await run(args, out), args.join(' ')).toBe(2);
+      expect(out.out()).toBe('');
+      expect(out.err()).toBe('pneumark fmt: --force: only applies to --write (it lets --write rewrite notes with syntax errors)\n');
+    }
+    expect(readFileSync(join(dir, 'n.pneu'), 'utf8')).toBe(messy);
+  });
+});

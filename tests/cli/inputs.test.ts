@@ -1,12 +1,13 @@
 // Which notes a command reads: paths that look like patterns, exclusions outside the working
 // folder, `.pneuignore` files in the folders scanned, inputs that hold no note, extensions in any
 // case, and notes that are not UTF-8.
-import { mkdirSync, mkdtempSync, writeFileSync } from 'node:fs';
+import { chmodSync, mkdirSync, mkdtempSync, readdirSync, symlinkSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { memoryIo, type MemoryIo } from '../helpers/memory-io';
 import { run } from '../../server/src/cli/main';
+import { inputHooks } from '../../server/src/cli/inputs';
 
 const io = (cwd: string, stdinText: string | Buffer = ''): MemoryIo => memoryIo({ cwd, stdin: stdinText });
 
@@ -355,5 +356,84 @@ describe('notes that are not UTF-8', () => {
     const out = io(dir);
     expect(await run(['check', 'bom.pneu'], out)).toBe(0);
     expect(out.err()).toBe('');
+  });
+});
+
+describe('what a folder walk cannot read is a problem, never skipped in silence', () => {
+  /** Lists folders as fs does, except those named `locked`, as if their permissions forbade it. */
+  const lockedFolders = (path: string, options: { withFileTypes: true }) => {
+    if (/[\\/]locked[\\/]?$/.test(path)) throw Object.assign(new Error(`EACCES: permission denied, scandir '${path}'`), { code: 'EACCES' });
+    return readdirSync(path, options);
+  };
+
+  it('a folder below the one named that cannot be listed: exit 2 from check, export and fmt --check', async () => {
+    const dir = tempDir();
+    writeFileSync(join(dir, 'a.pneu'), clean);
+    mkdirSync(join(dir, 'ward', 'locked'), { recursive: true });
+    writeFileSync(join(dir, 'ward', 'locked', 'b.pneu'), alarming);
+    inputHooks.readdirSync = lockedFolders;
+    try {
+      for (const args of [['check', '.'], ['check', '**/*.pneu'], ['export', '.', '--format', 'csv'], ['fmt', '--check', '.']]) {
+        const out = io(dir);
+        expect(await run(args, out), args.join(' ')).toBe(2);
+        expect(out.err(), args.join(' ')).toContain('pneumark: ward/locked: folder cannot be read (permission denied); the notes in it are not read\n');
+      }
+      const json = io(dir);
+      expect(await run(['check', '.', '--format', 'json'], json)).toBe(2);
+      const files = (JSON.parse(json.out()) as { files: { path: string; problem: string | null }[] }).files;
+      expect(files.map((f) => f.path)).toEqual(['ward/locked', 'a.pneu']);
+      // Left out on purpose, it is no problem.
+      const excluded = io(dir);
+      expect(await run(['check', '.', '--exclude', 'locked/'], excluded)).toBe(0);
+      expect(excluded.err()).toBe('');
+    } finally {
+      inputHooks.readdirSync = undefined;
+    }
+  });
+
+  it.skipIf(process.platform === 'win32' || process.getuid?.() === 0)('the same with real permissions (not as root, which reads anything)', async () => {
+    const dir = tempDir();
+    writeFileSync(join(dir, 'a.pneu'), clean);
+    mkdirSync(join(dir, 'locked'));
+    writeFileSync(join(dir, 'locked', 'b.pneu'), alarming);
+    chmodSync(join(dir, 'locked'), 0o000);
+    try {
+      const out = io(dir);
+      expect(await run(['check', '.'], out)).toBe(2);
+      expect(out.err()).toContain('pneumark: locked: folder cannot be read (permission denied)');
+      const named = io(dir);
+      expect(await run(['check', 'locked/b.pneu'], named)).toBe(2);
+      expect(named.err()).toBe('pneumark: locked/b.pneu: permission denied (a folder on the way to it cannot be searched)\n');
+    } finally {
+      chmodSync(join(dir, 'locked'), 0o755);
+    }
+  });
+
+  it.skipIf(process.platform === 'win32')('a note that is a symbolic link to nothing, or a loop of links, is named, not left out', async () => {
+    const dir = tempDir();
+    writeFileSync(join(dir, 'a.pneu'), clean);
+    symlinkSync('moved-away.pneu', join(dir, 'b.pneu'));
+    symlinkSync('c2.pneu', join(dir, 'c1.pneu'));
+    symlinkSync('c1.pneu', join(dir, 'c2.pneu'));
+    symlinkSync('nowhere.txt', join(dir, 'other.txt')); // not a note: nothing to say
+    const folder = io(dir);
+    expect(await run(['check', '.'], folder)).toBe(2);
+    expect(folder.err()).toBe([
+      'pneumark: b.pneu: a symbolic link to something that does not exist (moved-away.pneu)',
+      'pneumark: c1.pneu: a loop of symbolic links',
+      'pneumark: c2.pneu: a loop of symbolic links',
+      '',
+    ].join('\n'));
+    expect(folder.out()).toMatch(/1 note checked, 3 could not be read/);
+    // A pattern still decides which links are notes.
+    const pattern = io(dir);
+    expect(await run(['check', '[ab].pneu'], pattern)).toBe(2);
+    expect(pattern.err()).toBe('pneumark: b.pneu: a symbolic link to something that does not exist (moved-away.pneu)\n');
+    const named = io(dir);
+    expect(await run(['export', 'b.pneu', 'c1.pneu', '--format', 'jsonl'], named)).toBe(2);
+    expect(named.err()).toBe('pneumark: b.pneu: a symbolic link to something that does not exist (moved-away.pneu)\npneumark: c1.pneu: a loop of symbolic links\n');
+    const fmt = io(dir);
+    expect(await run(['fmt', '--check', '.'], fmt)).toBe(2);
+    expect(fmt.err()).toContain('pneumark: b.pneu: a symbolic link to something that does not exist (moved-away.pneu)\n');
   });
 });

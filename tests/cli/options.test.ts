@@ -100,3 +100,40 @@ describe('docs', () => {
     expect(readFileSync(join(dir, 'checks.md'), 'utf8')).toBe('old');
   });
 });
+
+describe('an option that takes one value, given twice', () => {
+  it('is a usage error naming both values, not the last one silently winning', async () => {
+    expect(await usageError(['check', '--format', 'json', NOTE, '--format', 'sarif']))
+      .toBe('pneumark check: --format is given twice ("json", then "sarif"); give it once');
+    expect(await usageError(['check', '--max-warnings=0', '--max-warnings', '10', NOTE]))
+      .toBe('pneumark check: --max-warnings is given twice ("0", then "10"); give it once');
+    expect(await usageError(['export', '--format', 'csv', '--shift-days', '-3', '--shift-days', '-3', NOTE]))
+      .toBe('pneumark export: --shift-days is given twice ("-3", then "-3"); give it once');
+  });
+
+  it('--exclude and flags may be repeated', async () => {
+    const out = io();
+    expect(await run(['check', '--quiet', '--quiet', '--exclude', 'a/', '--exclude', 'b/', NOTE], out)).toBe(0);
+    expect(out.err()).toBe('');
+  });
+});
+
+describe('--max-warnings', () => {
+  it('says how many warnings, in the singular for one', async () => {
+    const out = io();
+    expect(await run(['check', '--max-warnings', '0', NOTE], out)).toBe(1);
+    expect(out.err()).toBe('pneumark: 1 warning, more than --max-warnings 0\n');
+  });
+});
+
+describe('an empty path argument', () => {
+  it('is a usage error for every command, never the working folder (fmt --write "" would rewrite it all)', async () => {
+    const line = 'an empty argument is not a path (is a variable unset?); name a file, folder or pattern, or . for the working folder';
+    expect(await usageError(['check', ''])).toBe(`pneumark check: ${line}`);
+    expect(await usageError(['check', NOTE, ''])).toBe(`pneumark check: ${line}`);
+    expect(await usageError(['export', '', '--format', 'csv'])).toBe(`pneumark export: ${line}`);
+    expect(await usageError(['fmt', '--write', ''])).toBe(`pneumark fmt: ${line}`);
+    expect(await usageError(['fmt', '--check', ''])).toBe(`pneumark fmt: ${line}`);
+    expect(await usageError(['show', ''])).toBe(`pneumark show: ${line}`);
+  });
+});

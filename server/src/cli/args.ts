@@ -37,9 +37,10 @@ Run \`pneumark COMMAND --help\` for a command's options.
 
 Exit codes: 0 clean; 1 findings at error level, more warnings than --max-warnings, or notes that
 fmt --check would change; 2 a usage error, inputs that hold no note (an empty folder, a pattern
-that matches nothing), a note that could not be read or that fmt --write would not rewrite, an
-invalid pneumark.config.json (one line per problem on standard error; the run goes on with the
-defaults for that file), or standard output closed early (e.g. by head).
+that matches nothing), a note that could not be read or that fmt --write would not rewrite, a
+folder below those named that cannot be listed, an invalid pneumark.config.json (one line per
+problem on standard error; the run goes on with the defaults for that file), or standard output
+closed early (e.g. by head).
 
 ${CAUTION}`,
   show: `Usage: pneumark show FILE
@@ -81,10 +82,10 @@ Without --check or --write, prints the formatted note (one file only).
 Options:
   --check                    list notes whose layout would change; exit 1 if any
   --write                    rewrite notes in place, atomically; a note with syntax errors is left
-                             alone unless --force, and a note changed on disk while being formatted
-                             is never overwritten
-  --force                    also rewrite notes that have syntax errors (their broken lines are kept
-                             as they are)
+                             alone unless --force, and a read-only note, or one changed on disk
+                             while being formatted, is never overwritten
+  --force                    with --write: also rewrite notes that have syntax errors (their broken
+                             lines are kept as they are)
   --exclude PATTERN          leave out paths matching PATTERN (gitignore syntax; repeatable)`,
   docs: `Usage: pneumark docs [--write FILE] [--grammar FILE] [--readme FILE]
 
@@ -97,6 +98,14 @@ Options:
 };
 
 export class UsageError extends Error {}
+
+/**
+ * An empty argument (`check "$NOTES"` with the variable unset) would resolve to the working
+ * folder and take in every note under it (`fmt --write ""` would rewrite them all): a usage error.
+ */
+export function refuseEmptyPaths(paths: readonly string[]): void {
+  if (paths.some((p) => p === '')) throw new UsageError('an empty argument is not a path (is a variable unset?); name a file, folder or pattern, or . for the working folder');
+}
 
 /**
  * An option that takes a whole number: only plain decimal digits (with a sign when `signed`), in
@@ -123,7 +132,8 @@ const NEGATIVE_NUMBER = /^-\d/;
 /**
  * Parses options strictly; each command validates the values with zod. A negative number right
  * after an option that takes a value is that option's value (`--shift-days -3`), as
- * `--shift-days=-3` would be. Errors are one line that names the option as typed.
+ * `--shift-days=-3` would be; an option that takes one value may be given once. Errors are one
+ * line that names the option as typed.
  */
 export function parse(args: readonly string[], options: OptionSpec): { positionals: string[]; values: Record<string, string | boolean | string[] | undefined> } {
   const joined: string[] = [];
@@ -140,10 +150,26 @@ export function parse(args: readonly string[], options: OptionSpec): { positiona
     }
   }
   try {
-    const parsed = parseArgs({ args: joined, options: { help: { type: 'boolean', short: 'h' }, ...options }, allowPositionals: true, strict: true });
+    const parsed = parseArgs({ args: joined, options: { help: { type: 'boolean', short: 'h' }, ...options }, allowPositionals: true, strict: true, tokens: true });
+    twice(parsed.tokens, options);
     return { positionals: parsed.positionals, values: parsed.values as Record<string, string | boolean | string[] | undefined> };
   } catch (error) {
+    if (error instanceof UsageError) throw error;
     throw new UsageError(optionProblem(error));
+  }
+}
+
+/**
+ * An option that takes one value, given more than once (`--format json … --format sarif`), is a
+ * usage error rather than the last one silently winning: in a script, one of the two is a mistake.
+ */
+function twice(tokens: ReturnType<typeof parseArgs>['tokens'], options: OptionSpec): void {
+  const seen = new Map<string, string>();
+  for (const token of tokens ?? []) {
+    if (token.kind !== 'option' || options[token.name]?.type !== 'string' || options[token.name]?.multiple) continue;
+    const before = seen.get(token.name);
+    if (before !== undefined) throw new UsageError(`--${token.name} is given twice (${JSON.stringify(before)}, then ${JSON.stringify(token.value ?? '')}); give it once`);
+    seen.set(token.name, token.value ?? '');
   }
 }
 

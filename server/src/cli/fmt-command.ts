@@ -6,12 +6,13 @@
  * its messages have their control characters made visible (see `visible`); a note printed formatted
  * is the note itself, written as it is.
  */
+import { accessSync, constants, statSync } from 'node:fs';
 import { isAbsolute, join } from 'node:path';
 import { z } from 'zod';
 import { checkNote } from '../core/check-note';
 import { formatNote } from '../core/service/format';
 import { readSnapshot, writeIfUnchanged, type BeforeRename } from '../node/atomic-write';
-import { listInputs, looksBinary, MAX_NOTE_BYTES, readNote, utf8Problem } from './inputs';
+import { listInputs, looksBinary, MAX_NOTE_BYTES, readNote, readProblem, utf8Problem } from './inputs';
 import { EXIT, HELP, parse, UsageError, validate, type Io } from './args';
 import { visible } from './visible';
 
@@ -20,7 +21,9 @@ const fmtOptions = z.object({
   write: z.boolean().default(false),
   force: z.boolean().default(false),
   exclude: z.array(z.string().min(1).max(500)).max(100).default([]),
-}).refine((o) => !(o.check && o.write), { message: 'use either --check or --write, not both', path: ['check'] });
+}).refine((o) => !(o.check && o.write), { message: 'use either --check or --write, not both', path: ['check'] })
+  // --force lets --write rewrite notes with syntax errors; elsewhere it would be silently ignored.
+  .refine((o) => !o.force || o.write, { message: 'only applies to --write (it lets --write rewrite notes with syntax errors)', path: ['force'] });
 
 /** Test hook for the race and interruption tests. */
 export const fmtHooks: { beforeRename: BeforeRename | undefined } = { beforeRename: undefined };
@@ -63,7 +66,7 @@ export function runFmt(args: readonly string[], io: Io): number {
     try {
       snapshot = readSnapshot(abs);
     } catch (error) {
-      io.stderr.write(`pneumark: ${shown}: cannot be read (${(error as NodeJS.ErrnoException).code ?? 'error'})\n`);
+      io.stderr.write(`pneumark: ${shown}: ${readProblem(abs, error)}\n`);
       failed = true;
       continue;
     }
@@ -87,6 +90,13 @@ export function runFmt(args: readonly string[], io: Io): number {
       io.stdout.write(`${shown}\n`);
       continue;
     }
+    // A note without write permission is kept as it is: the rename would replace it all the same,
+    // defeating the permission (an archived or signed-off note is often made read-only on purpose).
+    if (!writable(snapshot.realPath)) {
+      io.stderr.write(`pneumark: ${shown}: read-only (no permission to write it); not rewritten\n`);
+      failed = true;
+      continue;
+    }
     const syntaxErrors = checkNote(text).findings.filter((f) => f.severity === 'error' && /^PN1/.test(f.code));
     if (syntaxErrors.length > 0 && !opts.force) {
       io.stderr.write(`pneumark: ${shown}: not rewritten: ${syntaxErrors.length} syntax error(s), first at line ${syntaxErrors[0]!.range.start.line + 1}; fix them or use --force\n`);
@@ -103,7 +113,7 @@ export function runFmt(args: readonly string[], io: Io): number {
         io.stdout.write(`formatted ${shown}\n`);
       }
     } catch (error) {
-      io.stderr.write(`pneumark: ${shown}: could not be written (${visible(error instanceof Error ? error.message : String(error))}); the original is intact\n`);
+      io.stderr.write(`pneumark: ${shown}: could not be written (${visible(writeProblem(error))}); the original is intact\n`);
       failed = true;
     }
   }
@@ -113,4 +123,25 @@ export function runFmt(args: readonly string[], io: Io): number {
     return EXIT.findings;
   }
   return EXIT.ok;
+}
+
+/** Whether a note may be rewritten: it has a write permission, and this process may write it. */
+function writable(path: string): boolean {
+  try {
+    if ((statSync(path).mode & 0o222) === 0) return false;
+    accessSync(path, constants.W_OK);
+    return true;
+  } catch {
+    return false;
+  }
+}
+
+/** Why the formatted note could not be put in place, in a few words (not the temporary file's name). */
+function writeProblem(error: unknown): string {
+  const code = (error as NodeJS.ErrnoException | null)?.code;
+  if (code === 'EACCES' || code === 'EPERM') return 'permission denied: its folder does not allow a new file beside it';
+  if (code === 'ENOSPC') return 'no space left on the disk';
+  if (code === 'EDQUOT') return 'disk quota exceeded';
+  if (code === 'EROFS') return 'read-only file system';
+  return error instanceof Error ? error.message : String(error);
 }

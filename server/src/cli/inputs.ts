@@ -13,12 +13,16 @@
  * on; inputs that hold no note at all give a one-line problem too, so a run pointed at the wrong
  * folder does not pass.
  */
-import { closeSync, existsSync, fstatSync, lstatSync, openSync, readFileSync, readSync, realpathSync, statSync, type Stats } from 'node:fs';
+import { closeSync, existsSync, fstatSync, lstatSync, openSync, readdirSync, readFileSync, readlinkSync, readSync, realpathSync, statSync, type Stats } from 'node:fs';
 import { isUtf8 } from 'node:buffer';
 import { basename, dirname, isAbsolute, join, normalize, relative, resolve, sep } from 'node:path';
 import ignore, { type Ignore } from 'ignore';
-import { globSync, isDynamicPattern } from 'tinyglobby';
+import { globSync, isDynamicPattern, type FileSystemAdapter } from 'tinyglobby';
 import { CONFIG_FILE_NAME } from '../core/config';
+import { refuseEmptyPaths } from './args';
+
+/** Test hook: lists a folder in place of `fs.readdirSync` (a folder root cannot be kept out of otherwise). */
+export const inputHooks: { readdirSync: ((path: string, options: { withFileTypes: true }) => unknown) | undefined } = { readdirSync: undefined };
 
 export const MAX_NOTE_BYTES = 20 * 1024 * 1024;
 export const NOTE_EXTENSION = '.pneu';
@@ -53,11 +57,13 @@ interface ArgumentYield {
 type ExclusionSource = '--exclude' | typeof IGNORE_FILE;
 
 export function listInputs(args: readonly string[], cwd: string, exclude: readonly string[] = []): InputList {
+  refuseEmptyPaths(args);
   const problems: NoteInput[] = [];
   /** Each path found, with the arguments that brought it in (the first decides its root). */
   const found = new Map<string, ArgumentYield[]>();
   const yields: ArgumentYield[] = [];
   let stdin = false;
+  const walk = new WalkWatch();
   const add = (path: string, from: ArgumentYield) => {
     from.found++;
     const by = found.get(path);
@@ -70,30 +76,34 @@ export function listInputs(args: readonly string[], cwd: string, exclude: readon
     // A path that exists is a path, whatever characters it has: `a[1].pneu` or `notes (copy)` must
     // not be read as patterns (and match other files, or nothing).
     let stat: Stats | null = null;
+    let statError: unknown = null;
     try {
       stat = statSync(abs);
-    } catch {
+    } catch (error) {
       stat = null;
+      statError = error;
     }
-    if (stat === null && isDynamicPattern(arg)) {
+    if (stat === null && errorCode(statError) === 'ENOENT' && isDynamicPattern(arg)) {
       const from: ArgumentYield = { arg, kind: 'pattern', root: resolve(cwd, staticPrefix(arg)), found: 0, excludedBy: new Set() };
       yields.push(from);
-      const matches = globSync(arg, { cwd, onlyFiles: true, dot: false, ignore: ['**/node_modules/**'], expandDirectories: false });
+      walk.root = from.root;
+      const matches = globSync(arg, { cwd, onlyFiles: true, dot: false, ignore: ['**/node_modules/**'], expandDirectories: false, fs: walk.fs });
       if (matches.length === 0) problems.push({ path: arg, text: null, problem: 'no file matches this pattern' });
       for (const m of matches) add(toPosix(m), from);
       continue;
     }
     if (stat === null) {
-      problems.push({ path: arg, text: null, problem: 'no such file or folder' });
+      problems.push({ path: arg, text: null, problem: pathProblem(abs, statError) });
       continue;
     }
     if (stat.isDirectory()) {
       const from: ArgumentYield = { arg, kind: 'folder', root: abs, found: 0, excludedBy: new Set() };
       yields.push(from);
       const base = toPosix(relative(cwd, abs)) || '.';
+      walk.root = abs;
       // `.pneu` in any case: a note saved as NOTE.PNEU is a note (and on a case-insensitive disk,
       // the same name).
-      for (const m of globSync(`**/*${NOTE_EXTENSION}`, { cwd: abs, onlyFiles: true, dot: false, caseSensitiveMatch: false, ignore: ['**/node_modules/**'] })) {
+      for (const m of globSync(`**/*${NOTE_EXTENSION}`, { cwd: abs, onlyFiles: true, dot: false, caseSensitiveMatch: false, ignore: ['**/node_modules/**'], fs: walk.fs })) {
         add(base === '.' ? toPosix(m) : `${base}/${toPosix(m)}`, from);
       }
     } else {
@@ -108,6 +118,13 @@ export function listInputs(args: readonly string[], cwd: string, exclude: readon
     const source = excludedBy(path, by[0]!.root);
     if (source === null) kept.push(path);
     else for (const from of by) from.excludedBy.add(source);
+  }
+  // A folder below those named that cannot be listed would otherwise pass unnoticed, its notes
+  // neither checked nor exported: it is a problem, unless an exclusion leaves out what it holds.
+  for (const [folder, { code, root }] of [...walk.unreadable].sort(([a], [b]) => comparePaths(a, b))) {
+    const shown = toPosix(relative(cwd, folder)) || '.';
+    if (excludedBy(`${shown === '.' ? '' : `${shown}/`}note${NOTE_EXTENSION}`, root) !== null) continue;
+    problems.push({ path: shown, text: null, problem: `folder cannot be read (${code === 'EACCES' || code === 'EPERM' ? 'permission denied' : code}); the notes in it are not read` });
   }
   const files = onePathPerNote(kept.sort(comparePaths), cwd);
   if (files.length === 0 && !stdin && problems.length === 0) {
@@ -191,6 +208,77 @@ function realPath(abs: string, realFolders: Map<string, string | null>): string 
     return real === null ? realpathSync.native(abs) : join(real, name);
   } catch {
     return null;
+  }
+}
+
+function errorCode(error: unknown): string | undefined {
+  return (error as NodeJS.ErrnoException | null)?.code;
+}
+
+/**
+ * What a folder walk met that it would otherwise pass over in silence (tinyglobby skips what it
+ * cannot read): folders that cannot be listed, and symbolic links that lead nowhere (to nothing,
+ * or round a loop). A link that leads nowhere is let through the walk as a file, so that the
+ * pattern decides whether it is a note, and reading it then says what is wrong with it: a
+ * dataset with a broken link has a note missing, which must not pass.
+ */
+class WalkWatch {
+  /** Folders that could not be listed (absolute), with the error code and the `root` of the argument whose walk met them. */
+  readonly unreadable = new Map<string, { readonly code: string; readonly root: string }>();
+  /** The `root` of the argument being walked. */
+  root = '';
+  private readonly nowhere = new Set<string>();
+  readonly fs: FileSystemAdapter = {
+    readdirSync: ((path: string, options: { withFileTypes: true }) => {
+      try {
+        return (inputHooks.readdirSync ?? readdirSync)(path, options);
+      } catch (error) {
+        const folder = resolve(path);
+        if (!this.unreadable.has(folder)) this.unreadable.set(folder, { code: errorCode(error) ?? 'unknown error', root: this.root });
+        throw error;
+      }
+    }) as unknown as FileSystemAdapter['readdirSync'],
+    realpathSync: ((path: string) => {
+      try {
+        return realpathSync(path);
+      } catch (error) {
+        const code = errorCode(error);
+        if (code !== 'ENOENT' && code !== 'ELOOP') throw error;
+        this.nowhere.add(path);
+        return path;
+      }
+    }) as unknown as FileSystemAdapter['realpathSync'],
+    statSync: ((path: string) => {
+      if (this.nowhere.has(path)) return lstatSync(path);
+      return statSync(path);
+    }) as unknown as FileSystemAdapter['statSync'],
+  };
+}
+
+/** Why a path named on the command line cannot be used, in a few words. */
+function pathProblem(abs: string, error: unknown): string {
+  const code = errorCode(error);
+  if (code === 'ENOENT') return isLink(abs) ? `a symbolic link to something that does not exist (${linkTarget(abs)})` : 'no such file or folder';
+  if (code === 'ELOOP') return 'a loop of symbolic links';
+  if (code === 'EACCES' || code === 'EPERM') return 'permission denied (a folder on the way to it cannot be searched)';
+  if (code === 'ENOTDIR') return 'a part of the path is not a folder';
+  if (code === 'ENAMETOOLONG') return 'the path is too long';
+  return `cannot be read (${code ?? 'unknown error'})`;
+}
+
+function isLink(abs: string): boolean {
+  try {
+    return lstatSync(abs).isSymbolicLink();
+  } catch {
+    return false;
+  }
+}
+
+function linkTarget(abs: string): string {
+  try {
+    return readlinkSync(abs);
+  } catch {
+    return '?';
   }
 }
 
@@ -401,10 +489,7 @@ export function readNote(path: string, cwd: string, stdin: () => Buffer, options
       }
     }
   } catch (error) {
-    const code = (error as NodeJS.ErrnoException).code;
-    if (code === 'EISDIR') return { path: shown, text: null, problem: 'is a folder' };
-    const problem = code === 'EACCES' || code === 'EPERM' ? 'permission denied' : code === 'ENOENT' ? 'no such file or folder' : `cannot be read (${code ?? 'unknown error'})`;
-    return { path: shown, text: null, problem };
+    return { path: shown, text: null, problem: readProblem(path === '-' ? null : isAbsolute(path) ? path : join(cwd, path), error) };
   }
   if (bytes.length > MAX_NOTE_BYTES) return { path: shown, text: null, problem: `too large to check (the limit is ${MAX_NOTE_BYTES / 1048576} MB)` };
   if (looksBinary(bytes)) return { path: shown, text: null, problem: 'looks like a binary file, not a note' };
@@ -413,6 +498,16 @@ export function readNote(path: string, cwd: string, stdin: () => Buffer, options
   let text = bytes.toString('utf8');
   if (text.charCodeAt(0) === 0xfeff && options.keepBom !== true) text = text.slice(1);
   return { path: shown, text, problem: null };
+}
+
+/** Why a note could not be opened or read, in a few words (`abs` null for standard input). */
+export function readProblem(abs: string | null, error: unknown): string {
+  const code = errorCode(error);
+  if (code === 'EISDIR') return 'is a folder';
+  if (code === 'EACCES' || code === 'EPERM') return 'permission denied';
+  if (abs !== null && (code === 'ENOENT' || code === 'ELOOP')) return pathProblem(abs, error);
+  if (code === 'ENOENT') return 'no such file or folder';
+  return `cannot be read (${code ?? 'unknown error'})`;
 }
 
 /** The bytes of an open regular file of `size` bytes (fewer if it shrank meanwhile). */

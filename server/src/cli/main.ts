@@ -10,7 +10,7 @@ import { resolve } from 'node:path';
 import { isMainThread, parentPort, workerData } from 'node:worker_threads';
 import { z } from 'zod';
 import { checkNote } from '../core/check-note';
-import { CAUTION, EXIT, HELP, jobsOption, parse, UsageError, validate, wholeNumberOption, type Io } from './args';
+import { CAUTION, EXIT, HELP, jobsOption, parse, refuseEmptyPaths, UsageError, validate, wholeNumberOption, type Io } from './args';
 import { ConfigReport, reportConfigProblems } from './config-report';
 import { renderCheckDocs } from '../core/checks/docs';
 import { replaceBetween, withGeneratedTables } from '../core/fields/docs';
@@ -62,6 +62,7 @@ function show(args: readonly string[], io: Io): number {
   const { positionals, values } = parse(args, {});
   if (values.help) { io.stdout.write(`${HELP.show}\n`); return EXIT.ok; }
   if (positionals.length !== 1) throw new UsageError('show takes exactly one file (use `check` for several)');
+  refuseEmptyPaths(positionals);
   const note = readNote(positionals[0]!, io.cwd, io.stdin);
   if (note.text === null) {
     io.stderr.write(`pneumark: ${visible(note.path)}: ${visible(note.problem ?? '')}\n`);
@@ -121,7 +122,7 @@ async function check(args: readonly string[], io: Io): Promise<number> {
   if (total.error > 0) return EXIT.findings;
   const warnings = total.warning;
   if (opts.maxWarnings !== undefined && warnings > opts.maxWarnings) {
-    io.stderr.write(`pneumark: ${warnings} warnings, more than --max-warnings ${opts.maxWarnings}\n`);
+    io.stderr.write(`pneumark: ${warnings} warning${warnings === 1 ? '' : 's'}, more than --max-warnings ${opts.maxWarnings}\n`);
     return EXIT.findings;
   }
   return EXIT.ok;
