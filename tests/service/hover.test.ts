@@ -164,7 +164,7 @@ describe('hover on a timepoint line', () => {
     expect(md).toContain('Age 58 y (header, line 1)');
     expect(md).toContain('FiO2 0.80 (carried from admitted, line 3)');
     expect(md).toContain('**Derived here**');
-    expect(md).toContain('P/F ratio (P/F): **110 mmHg** — _uses a carried value_');
+    expect(md).toContain('P/F ratio (P/F): **110 mmHg** = 14.7 kPa — _uses a carried value_');
     expect(md).toContain('Driving pressure (ΔP): **15 cmH2O**');
     expect(md).toMatch(/- [^\n]*consistent with/i);
     endsWithCaution(md);

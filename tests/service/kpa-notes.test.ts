@@ -197,14 +197,23 @@ describe('header values in a kPa note', () => {
 });
 
 describe('a note in mmHg', () => {
-  it('is shown as before: no kPa in the summary, hints or formulas', () => {
+  it('is shown as before: no kPa in the summary, hints or formulas; a derived gas pressure\'s explanation gives it in kPa too, after the mmHg', () => {
     const result = checkNote(mmhgNote);
     expect(timepointSummary(result, 4)?.text).toBe('P/F 211 mmHg · pH 7.28 · PaCO2 68 mmHg · PaO2 59 mmHg · SpO2 90 %');
     const [first] = hintsOn(result, 4);
     expect(first?.label).toBe('P/F 211 · A–a 56 (≤ 22)');
     expect(first?.tooltipMarkdown).toContain('With the numbers: `59 ÷ 0.28 = 211 mmHg`');
     expect(first?.tooltipMarkdown).toContain('- PaO2 59 mmHg — line 5');
-    expect(first?.tooltipMarkdown).not.toContain('kPa');
+    // 210.7 mmHg = 28.1 kPa, 55.6 mmHg = 7.4 kPa (UCUM for the kPa).
+    expect(ucumKpa(59 / 0.28).toFixed(1)).toBe('28.1');
+    expect(first?.tooltipMarkdown).toContain('**P/F ratio** (P/F): **211 mmHg** = 28.1 kPa');
+    expect(first?.tooltipMarkdown.split('\n').filter((l) => l.includes('kPa'))).toEqual([
+      '**P/F ratio** (P/F): **211 mmHg** = 28.1 kPa',
+      expect.stringMatching(/^\*\*A–a gradient\*\* \(A–a\): \*\*56 mmHg\*\* = 7\.4 kPa$/),
+    ]);
+    const tpHover = hoverAt(result, { line: 1, character: 2 })?.markdown ?? '';
+    expect(tpHover).toContain('- P/F ratio (P/F): **211 mmHg** = 28.1 kPa');
+    expect(tpHover).toContain('- HCO3 calculated from pH and PaCO2 (HCO3 calc): **31.6 mmol/L**\n');
     const { tp, pf } = pfOf(result);
     expect(derivedHover(pf, tp)).toBe(derivedHover(pf));
   });

@@ -42,6 +42,14 @@ export function derivedValueText(d: DerivedValue, tp: Timepoint | null = null): 
   return d.unit ? `${number} ${d.unit}` : number;
 }
 
+/**
+ * ` = 2.3 kPa`: a gas pressure shown in mmHg, in the other unit system too (as a stated value's
+ * hover gives it); empty for any other value, and where kPa is shown first.
+ */
+export function otherSystemText(d: DerivedValue, tp: Timepoint | null = null): string {
+  return d.unit === 'mmHg' && !derivedInKpa(d, tp) ? ` = ${kpaText(d)} kPa` : '';
+}
+
 /** A formula input that is a gas pressure (PaO2, PaCO2, PB, PH2O, a derived PAO2), in mmHg. */
 function isGasTerm(t: Term): boolean {
   return t.unit === 'mmHg' && (t.fieldId === undefined || isKpaField(t.fieldId));
@@ -139,7 +147,7 @@ function originText(t: Term): string {
 /** The body of a derived value's explanation, without the caution line. */
 export function derivedBody(d: DerivedValue, options: { readonly carriedSentence?: boolean; readonly timepoint?: Timepoint | null } = {}): string {
   const tp = options.timepoint ?? null;
-  const head = `**${escapeMarkdown(d.label)}** (${escapeMarkdown(d.short)}): **${escapeMarkdown(derivedValueText(d, tp))}**${d.estimate ? ' — _estimate_' : ''}`;
+  const head = `**${escapeMarkdown(d.label)}** (${escapeMarkdown(d.short)}): **${escapeMarkdown(derivedValueText(d, tp))}**${escapeMarkdown(otherSystemText(d, tp))}${d.estimate ? ' — _estimate_' : ''}`;
   const unitNote = substitutedUnitNote(d, tp);
   const formula = `Formula: ${code(d.formula)}  \nWith the numbers${unitNote ? `, ${escapeMarkdown(unitNote)}` : ''}: ${code(substitutedText(d, tp))}`;
   const inputs = d.inputs.length > 0

@@ -19,7 +19,7 @@ import type { Position } from '../types';
 import { formatNumber, formatShort, wordList } from '../util/format';
 import { unitsForSpelling } from '../fields/units';
 import { isBlank } from '../syntax/lexer';
-import { derivedValueText } from './derived-hover';
+import { derivedValueText, otherSystemText } from './derived-hover';
 import { allStated, contentEnd, contentStart, isValidPosition, itemAt, lineAt, lineRange, showsKpaOnLine, spanContains, statedOf, timepointOfLine, type ItemHit } from './locate';
 import { cautionLine, code, escapeMarkdown, paragraphs } from './markdown';
 import type { HoverInfo } from './types';
@@ -273,7 +273,7 @@ function timeParagraph(node: TimepointLine, tp: Timepoint | null, written: strin
 
 function derivedLine(d: DerivedValue, tp: Timepoint): string {
   const marks = [d.estimate ? 'estimate' : null, d.usesCarried ? 'uses a carried value' : null].filter((m): m is string => m !== null);
-  return `- ${escapeMarkdown(d.label)} (${escapeMarkdown(d.short)}): **${escapeMarkdown(derivedValueText(d, tp))}**${marks.length > 0 ? ` — _${marks.join(', ')}_` : ''}`;
+  return `- ${escapeMarkdown(d.label)} (${escapeMarkdown(d.short)}): **${escapeMarkdown(derivedValueText(d, tp))}**${escapeMarkdown(otherSystemText(d, tp))}${marks.length > 0 ? ` — _${marks.join(', ')}_` : ''}`;
 }
 
 /** `add fio2 to get PiO2, PAO2, P/F`: missing values grouped by what to add. */

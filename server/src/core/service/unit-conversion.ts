@@ -195,9 +195,12 @@ function unitsLineInsertion(result: NoteResult): number {
  * end-tidal CO2, barometric pressure; shorthand gases too) and make the note's `units gas`
  * say `to`, adding the line when there is none. The note then reads back to the same values,
  * within rounding. Values whose unit could not be read are left as they are. A value outside
- * its field's usual range (or doubted by PN204) keeps its number as written, so that a likely
- * slip stays recognisable, and gets the unit it was read in written out when it was bare.
- * Converting twice changes nothing the second time.
+ * its field's usual range keeps its number as written, so that a likely slip stays
+ * recognisable, and gets the unit it was read in written out when it was bare. A bare number
+ * whose unit is in doubt (PN204) is left as written: writing out the unit it was read in would
+ * state the unit Pneumark found implausible, and put a number kept out of calculations into
+ * them; left bare, it is read in the note's new gas unit, the one it is ordinary in (or stays
+ * in doubt when the note keeps its unit). Converting twice changes nothing the second time.
  */
 export function convertNoteUnits(result: NoteResult, to: GasUnit): TextEdit[] {
   const edits: TextEdit[] = [];
@@ -262,6 +265,7 @@ function valueEdits(s: StatedValue, field: FieldDef, to: GasUnit, bareAfter: Gas
   const item = s.item;
   const value = item.value!;
   const line = s.line;
+  if (s.unitDoubt && !item.unit) return [];
   if (!ordinary(s, field)) return keepAsRead(line, value.span.end, item.unit !== null, s.readUnit!, bareAfter);
   const edits: TextEdit[] = [];
   if (s.readUnit !== to) {
@@ -281,6 +285,8 @@ function shorthandEdits(sh: ShorthandPressures, to: GasUnit, bareAfter: GasUnit 
   const line = sh.node.line;
   const readUnit = sh.parts[0]?.readUnit ?? null;
   if (!readUnit || sh.parts.some((p) => p.readUnit !== readUnit || p.value === null)) return [];
+  // Every pressure in doubt (`7.35/5.3/9.1/24` read in mmHg): left bare, as a single one is.
+  if (!sh.unit && sh.parts.every((p) => p.unitDoubt)) return [];
   if (sh.parts.some((p) => !ordinary(p, p.field))) return keepAsRead(line, sh.end, sh.unit !== null, readUnit, bareAfter);
   const edits: TextEdit[] = [];
   if (readUnit !== to) {
