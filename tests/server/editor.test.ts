@@ -6,7 +6,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { CodeAction, CompletionItem, Diagnostic, FoldingRange, InlayHint, InsertReplaceEdit, TextEdit } from 'vscode-languageserver-protocol';
+import { DiagnosticSeverity, type CodeAction, type CompletionItem, type Diagnostic, type FoldingRange, type InlayHint, type InsertReplaceEdit, type TextEdit } from 'vscode-languageserver-protocol';
 import { applyEdits } from '../../server/src/core/service/text-edits';
 import { startClient, type LspClient } from './lsp-client';
 
@@ -137,6 +137,23 @@ describe('quick fixes', () => {
 });
 
 describe('the size limit', () => {
+  it('publishes at most 10,000 diagnostics, errors first, and says how many were left out', async () => {
+    // One line of 10,050 heart rates: 10,049 warnings for a key given again (PN206); then an
+    // impossible SpO2 at the end (an error), which must not be the one left out.
+    const text = `@ 08:00\nvitals ${'hr 80 '.repeat(10_050)}\nvitals spo2 140\n`;
+    const uri = client.open(path('many-findings.pneu'), text);
+    const p = await client.diagnostics(uri, undefined, 60_000);
+    expect(p.diagnostics).toHaveLength(10_001);
+    const notice = p.diagnostics.find((d) => d.code === 'too-many-findings');
+    expect(notice?.severity).toBe(DiagnosticSeverity.Information);
+    expect(notice?.message).toMatch(/shows 10,000 of this note's 10,05\d findings, the most severe first/);
+    const errors = p.diagnostics.filter((d) => d.severity === DiagnosticSeverity.Error);
+    expect(errors.map((d) => [d.code, d.range.start.line])).toEqual([['PN306', 2]]);
+    // The rest in note order.
+    const shown = p.diagnostics.filter((d) => d !== notice).map((d) => d.range.start.line * 1e6 + d.range.start.character);
+    expect(shown).toEqual([...shown].sort((a, b) => a - b));
+  }, 60_000);
+
   it('counts a note in UTF-8 bytes', async () => {
     const sized = await startClient({ maxNoteSizeKb: 16 });
     try {

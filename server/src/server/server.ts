@@ -45,7 +45,7 @@ import {
 import { ProjectConfigs } from '../node/project-config';
 import { DEFAULT_CLIENT_SETTINGS, effectiveSettings, readClientSettings, settingsKey, type ClientSettings, type EffectiveSettings } from './settings';
 import { IdleCollector } from './memory';
-import { isHintRef, rangesOverlap, toCodeAction, toCompletionItem, toDiagnostic, toDocumentSymbol, toInlayHint } from './translate';
+import { findingsToPublish, isHintRef, rangesOverlap, toCodeAction, toCompletionItem, toDiagnostic, toDocumentSymbol, toInlayHint, tooManyFindings } from './translate';
 
 interface NoteState {
   session: NoteSession;
@@ -312,7 +312,11 @@ export function startServer(connection: Connection, collector: IdleCollector = n
       read += lines;
       lines = nextStepLines(lines, took, read);
       if (next.done) {
-        publish(uri, state, version, started, next.value.findings.map((f) => diagnosticOf(f, uri)), timing);
+        const findings = next.value.findings;
+        const shown = findingsToPublish(findings);
+        const diagnostics = shown.map((f) => diagnosticOf(f, uri));
+        if (shown.length < findings.length) diagnostics.push(tooManyFindings(findings.length, shown.length));
+        publish(uri, state, version, started, diagnostics, timing);
         endReading();
         return;
       }

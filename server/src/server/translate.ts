@@ -44,6 +44,38 @@ export function toDiagnostic(f: Finding, uri: string, docsUri: string): Diagnost
   };
 }
 
+/**
+ * The most diagnostics published for one note. A note of thousands of timepoints has a few
+ * thousand findings; a pathological one (a line of 100,000 repeated keys) can have hundreds of
+ * thousands, which take seconds to send and to show and help no one. Above the limit the errors
+ * come first, then warnings, information and hints, each kind in note order, and one more
+ * diagnostic says how many were left out (`tooManyFindings`).
+ */
+export const MAX_PUBLISHED_DIAGNOSTICS = 10_000;
+
+const SEVERITY_RANK: Readonly<Record<Severity, number>> = { error: 0, warning: 1, information: 2, hint: 3 };
+
+/** The findings to publish: all of them up to `limit`, else the most severe `limit`, in note order. */
+export function findingsToPublish<F extends { readonly severity: Severity }>(findings: readonly F[], limit = MAX_PUBLISHED_DIAGNOSTICS): readonly F[] {
+  if (findings.length <= limit) return findings;
+  const kept = findings.map((f, index) => ({ f, index }))
+    .sort((a, b) => SEVERITY_RANK[a.f.severity] - SEVERITY_RANK[b.f.severity] || a.index - b.index)
+    .slice(0, limit)
+    .sort((a, b) => a.index - b.index);
+  return kept.map((k) => k.f);
+}
+
+/** The diagnostic that says some findings were left out (`findingsToPublish`), at the note's first line. */
+export function tooManyFindings(total: number, shown: number): Diagnostic {
+  return {
+    range: { start: { line: 0, character: 0 }, end: { line: 0, character: 0 } },
+    severity: DiagnosticSeverity.Information,
+    source: 'pneumark',
+    code: 'too-many-findings',
+    message: `Pneumark shows ${shown.toLocaleString('en-GB')} of this note's ${total.toLocaleString('en-GB')} findings, the most severe first; \`pneumark check\` on the note lists them all.`,
+  };
+}
+
 /** What a hint sent without its tooltip carries, to find it again on `inlayHint/resolve`. */
 export interface HintRef {
   readonly uri: string;
