@@ -156,6 +156,27 @@ describe('exclusions for notes outside the working folder', () => {
     await run(['check', 'ward', '--exclude', '/ward/old/'], out);
     expect(reported(out.out())).toEqual(['ward/one.pneu']);
   });
+
+  it('take an absolute path to a folder or file as that path, inside the working folder or outside it', async () => {
+    const top = tempDir();
+    mkdirSync(join(top, 'work', 'ward', 'old'), { recursive: true });
+    mkdirSync(join(top, 'notes', 'old'), { recursive: true });
+    writeFileSync(join(top, 'work', 'ward', 'one.pneu'), alarming);
+    writeFileSync(join(top, 'work', 'ward', 'old', 'two.pneu'), alarming);
+    writeFileSync(join(top, 'notes', 'three.pneu'), alarming);
+    writeFileSync(join(top, 'notes', 'four.pneu'), alarming);
+    writeFileSync(join(top, 'notes', 'old', 'five.pneu'), alarming);
+    const cwd = join(top, 'work');
+    const out = io(cwd);
+    await run(['check', 'ward', '../notes', '--exclude', join(cwd, 'ward', 'old'), '--exclude', join(top, 'notes', 'old') + '/', '--exclude', join(top, 'notes', 'four.pneu')], out);
+    expect(reported(out.out())).toEqual(['../notes/three.pneu', 'ward/one.pneu']);
+    // A folder whose name only begins like the excluded one stays in.
+    mkdirSync(join(top, 'notes', 'older'));
+    writeFileSync(join(top, 'notes', 'older', 'six.pneu'), alarming);
+    const prefix = io(cwd);
+    await run(['check', '../notes', '--exclude', join(top, 'notes', 'old')], prefix);
+    expect(reported(prefix.out())).toEqual(['../notes/four.pneu', '../notes/older/six.pneu', '../notes/three.pneu']);
+  });
 });
 
 /** Writes `files` (paths with forward slashes, relative to `dir`), making their folders. */

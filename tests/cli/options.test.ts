@@ -34,7 +34,7 @@ describe('whole-number options', () => {
   it('refuse --max-warnings and --jobs that are empty or not plain decimal digits', async () => {
     for (const value of ['', ' ', '0x10', '1e3', '-1', '2.0']) {
       expect(await usageError(['check', '--max-warnings', value, NOTE]), JSON.stringify(value))
-        .toBe(`pneumark check: --max-warnings: expected a whole number, 0 or more (got ${JSON.stringify(value)})`);
+        .toBe(`pneumark check: --max-warnings: expected a whole number from 0 to 1,000,000,000 (got ${JSON.stringify(value)})`);
       expect(await usageError(['check', '--jobs', value, NOTE]), JSON.stringify(value))
         .toBe(`pneumark check: --jobs: expected a whole number from 0 to 64 (got ${JSON.stringify(value)})`);
     }
@@ -60,7 +60,7 @@ describe('whole-number options', () => {
 
 describe('option problems', () => {
   it('name the option as typed, in plain words on one line', async () => {
-    expect(await usageError(['check', '--max-warnings', '-1', NOTE])).toBe('pneumark check: --max-warnings: expected a whole number, 0 or more (got "-1")');
+    expect(await usageError(['check', '--max-warnings', '-1', NOTE])).toBe('pneumark check: --max-warnings: expected a whole number from 0 to 1,000,000,000 (got "-1")');
     expect(await usageError(['check', '--exclude', '', NOTE])).toBe('pneumark check: --exclude: must not be empty (got "")');
     expect(await usageError(['check', '--format', 'xml', NOTE])).toBe('pneumark check: --format: must be one of text, json or sarif (got "xml")');
     expect(await usageError(['check', '--colour', NOTE])).toBe('pneumark check: unknown option --colour (see --help)');

@@ -55,7 +55,7 @@ Options:
   --format text|json|sarif   output format (default text); sarif is SARIF 2.1.0 for code-scanning tools
   --quiet                    list error findings only (text, json and sarif; totals count all)
   --max-warnings N           exit 1 when there are more than N warnings (N a whole number, 0 or more)
-  --exclude PATTERN          leave out paths matching PATTERN (gitignore syntax; repeatable)
+  --exclude PATTERN          leave out paths matching PATTERN (gitignore syntax) or an absolute path; repeatable
   --jobs N                   worker threads (0 or 1: none); default one per core, up to 4, from 2000 notes
   --no-progress              no progress bar, even on a terminal`,
   export: `Usage: pneumark export PATH... --format csv|jsonl|fhir [options]
@@ -63,15 +63,17 @@ Options:
 Options:
   --format csv|jsonl|fhir    csv: one row per timepoint with a header; jsonl: one JSON object per
                              timepoint; fhir: one FHIR R4 Bundle of Observations per note (a JSON array)
-  --redact                   drop free text (timepoint labels) from the export
-  --shift-days N             add N days to every day number and time offset (de-identification);
+  --redact                   drop free text from the export (timepoint labels; in JSON Lines, finding
+                             messages become the check's title)
+  --shift-days N             add N days to every day number and time (day, FHIR times; not
+                             offset_minutes), for de-identification;
                              N a whole number from -100000 to 100000, e.g. --shift-days -3
   --anchor DATETIME          FHIR only: the ISO date-time of day 1 00:00 (its time must be 00:00, e.g.
                              2026-01-05T00:00:00Z), to give observations a time
   --spreadsheet-safe         CSV only: an apostrophe before text starting with = + - @ tab, a carriage
                              return or ' (undo by removing one), and a byte-order mark; for files
                              opened in spreadsheet programs (the default output stays exact)
-  --exclude PATTERN          leave out paths matching PATTERN (gitignore syntax; repeatable)
+  --exclude PATTERN          leave out paths matching PATTERN (gitignore syntax) or an absolute path; repeatable
   --jobs N                   worker threads (0 or 1: none); default one per core, up to 4, from 2000 notes
   --no-progress              no progress bar, even on a terminal
 Columns are listed in README.md ("Export columns").`,
@@ -86,7 +88,7 @@ Options:
                              while being formatted, is never overwritten
   --force                    with --write: also rewrite notes that have syntax errors (their broken
                              lines are kept as they are)
-  --exclude PATTERN          leave out paths matching PATTERN (gitignore syntax; repeatable)`,
+  --exclude PATTERN          leave out paths matching PATTERN (gitignore syntax) or an absolute path; repeatable`,
   docs: `Usage: pneumark docs [--write FILE] [--grammar FILE] [--readme FILE]
 
 Prints (or writes) the documentation of every check, generated from the check registry.

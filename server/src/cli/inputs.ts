@@ -296,10 +296,12 @@ function comparePaths(a: string, b: string): number {
  */
 function exclusions(cwd: string, exclude: readonly string[]): (path: string, root: string) => ExclusionSource | null {
   const ignoreFiles = new IgnoreFiles(cwd);
+  const { paths, patterns } = splitExclusions(cwd, exclude);
   // No pattern excludes nothing: no need to ask of each note.
-  const fromArgs: Ignore | null = exclude.length === 0 ? null : ignore().add([...exclude]);
+  const fromArgs: Ignore | null = patterns.length === 0 ? null : ignore().add(patterns);
   return (path: string, root: string) => {
     const abs = resolve(cwd, path);
+    for (const p of paths) if (abs === p || abs.startsWith(p.endsWith(sep) ? p : p + sep)) return '--exclude';
     let rel = relative(cwd, abs);
     const inCwd = !outside(rel);
     if (!inCwd) rel = relative(root, abs);
@@ -308,6 +310,23 @@ function exclusions(cwd: string, exclude: readonly string[]): (path: string, roo
     if (fromArgs?.ignores(toPosix(rel))) return '--exclude';
     return null;
   };
+}
+
+/**
+ * `--exclude` values that name a file or folder by its absolute path (`--exclude /data/notes/old`,
+ * as a shell's tab completion writes it), apart from gitignore patterns. In gitignore syntax a
+ * leading `/` anchors a pattern to the working folder, so such a value would match nothing; it is
+ * taken as an absolute path when that path exists and the anchored reading (below the working
+ * folder) does not. Everything at or below such a path is left out.
+ */
+function splitExclusions(cwd: string, exclude: readonly string[]): { paths: string[]; patterns: string[] } {
+  const paths: string[] = [];
+  const patterns: string[] = [];
+  for (const value of exclude) {
+    if (isAbsolute(value) && existsSync(value) && !existsSync(join(cwd, value))) paths.push(resolve(value));
+    else patterns.push(value);
+  }
+  return { paths, patterns };
 }
 
 /** A `.pneuignore` file's patterns and where they are matched from. */

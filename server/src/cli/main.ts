@@ -78,7 +78,7 @@ function show(args: readonly string[], io: Io): number {
 const checkOptions = z.object({
   format: z.enum(['text', 'json', 'sarif']).default('text'),
   quiet: z.boolean().default(false),
-  maxWarnings: wholeNumberOption(0, 1_000_000_000, 'expected a whole number, 0 or more').optional(),
+  maxWarnings: wholeNumberOption(0, 1_000_000_000, 'expected a whole number from 0 to 1,000,000,000').optional(),
   exclude: z.array(z.string().min(1).max(500)).max(100).default([]),
   jobs: jobsOption,
   progress: z.boolean().default(true),
