@@ -1,5 +1,5 @@
 // Completions by cursor position: sections and snippets at the start of a line, keys after a
-// section word or a comma, words after word keys, units after a number.
+// section word or a comma, words after word keys, units (then keys) after a number.
 import { describe, expect, it } from 'vitest';
 import { checkNote } from '../../server/src/core/check-note';
 import { SECTIONS } from '../../server/src/core/fields/sections';
@@ -122,18 +122,26 @@ describe('words', () => {
 });
 
 describe('units', () => {
-  it('after a key and a number: the units that key takes', () => {
-    expect(labels('abg po2 71 |')).toEqual(['mmHg', 'kPa']);
-    expect(labels('vitals temp 38.2 |')).toEqual(['C', 'F']);
-    expect(labels('vent fio2 40 |')).toEqual(['%']);
-    expect(labels('labs hb 11 |')).toEqual(['g/dL', 'g/L']);
+  it('after a key and a number: the units that key takes, then the keys that may follow (a unit may be left out)', () => {
+    const units = (marked: string) => complete(marked).filter((c) => c.kind === 'unit').map((c) => c.label);
+    expect(units('abg po2 71 |')).toEqual(['mmHg', 'kPa']);
+    expect(units('vitals temp 38.2 |')).toEqual(['C', 'F']);
+    expect(units('vent fio2 40 |')).toEqual(['%']);
+    expect(units('labs hb 11 |')).toEqual(['g/dL', 'g/L']);
     expect(complete('abg po2 71 |')[0]).toMatchObject({ kind: 'unit', detail: 'PaO2 (default unit)' });
+    // Units first, then keys not yet on the line.
+    const items = complete('vitals hr 80 |');
+    const firstKey = items.findIndex((c) => c.kind === 'key');
+    expect(items.slice(0, firstKey).every((c) => c.kind === 'unit')).toBe(true);
+    expect(items.slice(firstKey).every((c) => c.kind === 'key')).toBe(true);
+    expect(items.map((c) => c.label)).toContain('rr');
+    expect(items.map((c) => c.label)).not.toContain('hr');
   });
 
   it('after a shorthand gas or a device flow', () => {
-    expect(labels('abg 7.28/56/71/26 |')).toEqual(['mmHg', 'kPa']);
-    expect(labels('oxygen cannula 2 |')).toEqual(['L/min']);
-    expect(labels('oxygen cpap 8 |')).toEqual(['cmH2O', 'mbar']);
+    expect(labels('abg 7.28/56/71/26 |').slice(0, 2)).toEqual(['mmHg', 'kPa']);
+    expect(labels('oxygen cannula 2 |')[0]).toBe('L/min');
+    expect(labels('oxygen cpap 8 |').slice(0, 2)).toEqual(['cmH2O', 'mbar']);
   });
 
   it('a unit being typed glued to its number replaces only the unit', () => {
@@ -149,8 +157,16 @@ describe('units', () => {
     expect(labels('oxygen venturi, fio2 .28 |')).toEqual(['flow', 'ipap', 'epap', 'level']);
     expect(labels('vent fio2 0.4%|')).toEqual([]);
     // A percentage still gets its unit.
-    expect(labels('vent fio2 40 |')).toEqual(['%']);
+    expect(labels('vent fio2 40 |')[0]).toBe('%');
     expect(labels('vent fio2 40%|')).toEqual(['%']);
+  });
+
+  it('offers no flow or pressure on a room-air line (room air has no device to set)', () => {
+    expect(labels('oxygen room air |')).toEqual(['fio2']);
+    expect(labels('oxygen ra, |')).toEqual(['fio2']);
+    expect(labels('oxygen air fio2 21 |')[0]).toBe('%');
+    expect(labels('oxygen air fio2 21 |')).not.toContain('flow');
+    expect(labels('oxygen cannula |')).toContain('flow');
   });
 
   it('falls back to keys when the typed word is not a unit', () => {
@@ -193,7 +209,7 @@ describe('while a value of several parts is typed', () => {
   it('offers nothing after the slash of a pair or a spaced shorthand gas: a number comes next', () => {
     expect(complete('abg 7.3 / 56 / |')).toEqual([]);
     expect(complete('vitals bp 120 / |')).toEqual([]);
-    expect(labels('abg 7.3 / 56 / 71 / 26 |')).toEqual(['mmHg', 'kPa']);
+    expect(labels('abg 7.3 / 56 / 71 / 26 |').slice(0, 3)).toEqual(['mmHg', 'kPa', 'fio2']);
   });
 
   it('completes a device of two words from its first word on', () => {
@@ -227,6 +243,6 @@ describe('columns and line endings', () => {
   });
 
   it('works on CRLF notes', () => {
-    expect(labels('vitals hr 80\r\nabg po2 71 |\r\n')).toEqual(['mmHg', 'kPa']);
+    expect(labels('vitals hr 80\r\nabg po2 71 |\r\n').slice(0, 2)).toEqual(['mmHg', 'kPa']);
   });
 });

@@ -6,7 +6,8 @@
  * - after a section word or a comma: the section's keys not yet used on the line (an oxygen
  *   line starts with its device; a gas line may start with a shorthand);
  * - after a key that takes a word (`mode`, `sex`, `gas`, `device`): its words;
- * - after a key and a number (or a shorthand gas, or a device's flow): the units it takes.
+ * - after a key and a number (or a shorthand gas, or a device's flow): the units it takes, then
+ *   the keys that may follow (a unit may be left out); on a room-air oxygen line, no flow or pressure.
  * Completions are narrowed to those whose label starts with the text typed before the cursor, and
  * replace the whole word under the cursor (the part after it too: `sp|2` becomes `spo2`).
  */
@@ -76,7 +77,10 @@ function completionsOnLine(node: LineNode, position: Position): CompletionInfo[]
 
   // The whole word under the cursor is replaced, also the part after it (`sp|2` becomes `spo2`).
   const replace = lineRange(line, wordStart, wordEnd);
-  const used = usedFields(section.id, node.kind === 'section' ? node.items : [], wordStart);
+  const lineItems = node.kind === 'section' ? node.items : [];
+  const used = usedFields(section.id, lineItems, wordStart);
+  // Room air is breathing with no device: no flow or pressure to set (a flow is PN310).
+  if (section.id === 'oxygen' && onRoomAir(lineItems)) for (const id of NOT_ON_ROOM_AIR) used.add(id);
   // Right after a comma (`hr 80,|`, a trigger character), a key is written after a blank, as the formatter writes it.
   const glued = wordStart > 0 && text.charCodeAt(wordStart - 1) === 0x2c;
   const keys = () => narrow(keyCompletions(section.id, used, replace), typed).map((c) => (glued ? { ...c, insertText: ` ${c.insertText}` } : c));
@@ -115,9 +119,10 @@ function completionsOnLine(node: LineNode, position: Position): CompletionInfo[]
     return [];
   }
   if (item.unit === null && item.value.kind !== 'word' && !(field && item.number !== null && isFraction(field, item.number))) {
+    // Its units first, then the next keys: a unit may be left out (`hr 80 rr 18`).
     const unitField = item.implied === 'shorthand' ? shorthandUnitField(section.id, items) : field;
     const units = unitField ? narrow(unitCompletions(unitField, replace), typed) : [];
-    if (units.length > 0) return units;
+    return [...units, ...keys()];
   }
   return keys();
 }
@@ -228,6 +233,15 @@ function shorthandSnippet(section: SectionId, replace: Range): CompletionInfo {
 }
 
 /** Field ids stated on the line, except the item at the cursor (the one being typed). */
+/** Oxygen-line fields that do not go with room air: a flow (PN310) and the pressures of a device. */
+const NOT_ON_ROOM_AIR: readonly string[] = ['o2_flow', 'ipap', 'epap', 'cpap_level'];
+
+/** Whether an oxygen line's device is room air (in any of its spellings). */
+function onRoomAir(items: readonly ItemNode[]): boolean {
+  const words = fieldFor('oxygen', 'device')?.words;
+  return items.some((i) => i.keyName === 'device' && i.value?.kind === 'word' && words?.[i.value.text.toLowerCase()] === 'room air');
+}
+
 function usedFields(section: SectionId, items: readonly ItemNode[], cursor: number): Set<string> {
   const used = new Set<string>();
   for (const item of items) {
