@@ -70,3 +70,19 @@ describe('expected compensation of a gas that PN402 reports', () => {
     expect(gap?.notes).toEqual(['without potassium']);
   });
 });
+
+describe('a gas written in kPa', () => {
+  // 7.35 / 40 mmHg / 24 fits (the pH and PaCO2 give 21.8 mmol/L, 2.2 from 24, within 2.45). Written
+  // in kPa, 40 mmHg is 5.3 kPa, which read as such is 39.75 mmHg and gives 21.7 mmol/L, 2.3 from 24;
+  // but 5.3 kPa stands for 5.25–5.35 kPa, and within that the gas fits: no PN402, as for its twin.
+  it('is checked at the resolution its PaCO2 was written with, as the same gas in mmHg', () => {
+    const codes = (note: string) => checkNote(note).findings.map((f) => f.code);
+    expect(codes('@ 08:00\nabg 7.35/40/80/24')).not.toContain('PN402');
+    expect(codes('units gas kPa\n@ 08:00\nabg 7.35/5.3/10.7/24')).not.toContain('PN402');
+    expect(codes('@ 08:00\nabg ph 7.35, pco2 5.3 kPa, po2 10.7 kPa, hco3 24')).not.toContain('PN402');
+    // Its acid–base reading is given, not held back.
+    expect(derivation('units gas kPa\n@ 08:00\nabg 7.35/5.3/10.7/24').interpretations.find((i) => i.topic === 'acid-base')?.text).not.toMatch(/not interpreted/);
+    // A gas that does not fit at any PaCO2 its kPa value stands for still does.
+    expect(codes('units gas kPa\n@ 08:00\nabg 7.40/5.3/12/15')).toContain('PN402');
+  });
+});

@@ -147,6 +147,24 @@ describe('internal consistency (tolerance max(2 mmol/L, 10 %))', () => {
     expect(result?.calculatedHco3MmolL).toBeCloseTo(24.5, 1);
     expect(result?.differenceMmolL).toBeCloseTo(-9.5, 1);
   });
+  it('with the resolution of a PaCO2 written in kPa, fits when any PaCO2 it stands for fits', () => {
+    // Henderson–Hasselbalch, HCO3 = 0.0307 × PaCO2 × 10^(pH − 6.1) (Hasselbalch 1916, from memory).
+    // 40 mmHg written as 5.3 kPa stands for 5.25–5.35 kPa (39.38–40.13 mmHg; 1 kPa = 7.500617 mmHg,
+    // NIST SP 811, 2008). With pH 7.35: 21.7 mmol/L at 39.75 mmHg (5.3 kPa as such), 21.9 at 40.13.
+    const resolution = 0.05 * 7.500617;
+    const asWritten = acidBaseConsistency(7.35, 5.3 * 7.500617, 24);
+    expect(asWritten?.consistent).toBe(false);
+    expect(asWritten?.calculatedHco3MmolL).toBeCloseTo(21.7, 1);
+    const atResolution = acidBaseConsistency(7.35, 5.3 * 7.500617, 24, resolution);
+    expect(atResolution?.consistent).toBe(true);
+    // The figures stay those of the value as written.
+    expect(atResolution?.calculatedHco3MmolL).toBeCloseTo(21.7, 1);
+    // The mmHg twin (40 mmHg: 21.8 mmol/L, 2.2 from 24, within 2.45) agrees.
+    expect(acidBaseConsistency(7.35, 40, 24)?.consistent).toBe(true);
+    // A real disagreement stays one at any resolution.
+    expect(acidBaseConsistency(7.4, 5.3 * 7.500617, 15, resolution)?.consistent).toBe(false);
+  });
+
   it('the tolerance has a 2 mmol/L floor and is 10 % above 20 mmol/L', () => {
     expect(acidBaseConsistency(7.1, 20, 8)?.toleranceMmolL).toBe(2);
     expect(acidBaseConsistency(7.4, 40, 24)?.toleranceMmolL).toBeCloseTo(2.45, 2);

@@ -209,6 +209,16 @@ describe('convertNoteUnits', () => {
     ));
   });
 
+  it('adds no finding: a gas that fits in mmHg still fits once its PaCO2 is rounded to kPa', () => {
+    // 40 mmHg is 5.33 kPa, written 5.3; read as such it would give an HCO3 0.1 mmol/L lower, past
+    // PN402's tolerance for this gas, but 5.3 kPa stands for 40 mmHg as well.
+    const text = note('@ 08:00', 'abg 7.35/40/80/24', 'vbg ph 7.31, pco2 47, hco3 24');
+    const codes = (t: string) => checkNote(t).findings.map((f) => f.code).sort();
+    const converted = applyEdits(text, convertNoteUnits(checkNote(text), 'kPa'));
+    expect(converted).toContain('abg 7.35/5.3/10.7/24');
+    expect(codes(converted)).toEqual(codes(text));
+  });
+
   it('updates an existing `units gas` line, and converts back', () => {
     const text = readFileSync('samples/home-oxygen-exacerbation.pneu', 'utf8');
     const toMmhg = applyEdits(text, convertNoteUnits(checkNote(text), 'mmHg'));

@@ -8,6 +8,7 @@ import type { Timeline } from './analysis/timeline';
 import { fieldById, shortName } from './fields/registry';
 import { convert, unitById, type UnitDef } from './fields/units';
 import { formatNumber } from './util/format';
+import { MMHG_PER_KPA } from './physiology/units';
 
 /** Decimals that keep a value's precision in another unit. */
 export function decimalsFor(unitId: string, fallback: number): number {
@@ -65,6 +66,17 @@ function writtenPrecisionIn(s: StatedValue, target: UnitDef): number {
   const shift = -Math.log10(factor);
   const whole = Math.round(shift);
   return Math.abs(shift - whole) < 1e-9 ? Math.max(0, written + whole) : 0;
+}
+
+/**
+ * How far (mmHg) a stated gas pressure can be from what it stands for when it was written in kPa:
+ * half a unit of its last written decimal, one decimal at least (6.7 kPa stands for 6.65–6.75 kPa,
+ * ± 0.375 mmHg). 0 for a pressure written in mmHg, which thresholds in mmHg take as it is.
+ */
+export function kpaResolutionMmhg(stated: StatedValue): number {
+  if (stated.readUnit !== 'kPa') return 0;
+  const decimals = Math.max(1, writtenDecimals(stated.item.value?.text ?? ''));
+  return 0.5 * 10 ** -decimals * MMHG_PER_KPA;
 }
 
 /** The most decimals among the numbers of a value's text (`7.5` → 1, `0.355` → 3, `7,25` → 2, `120/80` → 0). */

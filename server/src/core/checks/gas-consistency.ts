@@ -1,6 +1,6 @@
 /** pH, PaCO2 and HCO3 of one gas must agree (Henderson–Hasselbalch). */
 import { acidBaseConsistency, HCO3_CONSISTENCY_TOLERANCE, SOURCES } from '../physiology';
-import { gasPressureText, showsKpa } from '../present';
+import { gasPressureText, kpaResolutionMmhg, showsKpa } from '../present';
 import { toRange } from '../syntax/tree';
 import { formatNumber } from '../util/format';
 import { defineCheck } from './check';
@@ -12,7 +12,7 @@ export const gasInconsistent = defineCheck({
   severity: 'warning',
   tags: ['physiology'],
   doc: {
-    fires: `The reported HCO3 differs from the HCO3 that the reported pH and PaCO2 give by Henderson–Hasselbalch by more than max(${HCO3_CONSISTENCY_TOLERANCE.absoluteMmolL} mmol/L, ${HCO3_CONSISTENCY_TOLERANCE.relative * 100} %). An analyser calculates HCO3 from pH and PaCO2, so a disagreement points to a transcription error or values from different samples.`,
+    fires: `The reported HCO3 differs from the HCO3 that the reported pH and PaCO2 give by Henderson–Hasselbalch by more than max(${HCO3_CONSISTENCY_TOLERANCE.absoluteMmolL} mmol/L, ${HCO3_CONSISTENCY_TOLERANCE.relative * 100} %), for every PaCO2 a value written in kPa stands for (5.3 kPa: 5.25–5.35 kPa), so that a gas in kPa fires as its mmHg twin does. An analyser calculates HCO3 from pH and PaCO2, so a disagreement points to a transcription error or values from different samples.`,
     example: '@ 08:00\nabg 7.40/40/90/15',
     fix: 'Check the three values against the analyser print-out; the hover shows the HCO3 the pH and PaCO2 imply.',
   },
@@ -27,7 +27,11 @@ export const gasInconsistent = defineCheck({
     const paco2 = tp.values.numberOf('paco2');
     const hco3 = tp.values.numberOf('hco3');
     if (ph === null || paco2 === null || hco3 === null) return;
-    const result = acidBaseConsistency(ph, paco2, hco3);
+    let result = acidBaseConsistency(ph, paco2, hco3);
+    if (!result || result.consistent) return;
+    // A PaCO2 written in kPa is compared at the resolution it was written with, as its mmHg twin would be.
+    const resolution = kpaResolutionMmhg(tp.values.get('paco2')!.stated);
+    if (resolution > 0) result = acidBaseConsistency(ph, paco2, hco3, resolution);
     if (!result || result.consistent) return;
     const stated = tp.values.get('hco3')!.stated;
     ctx.report({

@@ -31,7 +31,7 @@ function gasHco3Doubted(c: DeriveContext, hco3: Term): string[] {
   const ph = c.field('ph');
   const paco2 = c.field('paco2');
   if (!ph || !paco2) return [];
-  const fit = acidBaseConsistency(ph.value, paco2.value, hco3.value);
+  const fit = acidBaseConsistency(ph.value, paco2.value, hco3.value, c.writtenResolutionMmhg('paco2'));
   return fit && !fit.consistent ? ['uses the gas HCO3, which does not fit the pH and PaCO2 (see PN402)'] : [];
 }
 

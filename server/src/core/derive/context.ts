@@ -8,8 +8,7 @@ import { fieldById } from '../fields/registry';
 import { displayUnit } from '../analysis/read-value';
 import type { Settings } from '../settings';
 import { formatNumber, wordList } from '../util/format';
-import { describeOrigin, writtenDecimals } from '../present';
-import { MMHG_PER_KPA } from '../physiology/units';
+import { describeOrigin, kpaResolutionMmhg } from '../present';
 import type { DerivedCategory, DerivedValue, InputOrigin, MissingValue, NotApplicable, Term } from './model';
 import { NONE } from '../util/lists';
 import { keptFor, SmallStore, type Kept } from '../util/small-store';
@@ -203,9 +202,7 @@ export class DeriveContext {
    */
   writtenResolutionMmhg(id: string): number {
     const input = this.input(id);
-    if (!input || input.stated.readUnit !== 'kPa') return 0;
-    const decimals = Math.max(1, writtenDecimals(input.stated.item.value?.text ?? ''));
-    return 0.5 * 10 ** -decimals * MMHG_PER_KPA;
+    return input ? kpaResolutionMmhg(input.stated) : 0;
   }
 
   /** A word value in force (device, mode, sex). */

@@ -384,24 +384,42 @@ export function expectedHco3Respiratory(paco2Mmhg: number, chronicity: Respirato
 /**
  * Internal consistency of a reported gas: reported HCO3 against HCO3 calculated from the
  * reported pH and PaCO2 (Henderson–Hasselbalch), within max(2 mmol/L, 10 %) —
- * see HCO3_CONSISTENCY_TOLERANCE. `null` unless 0 ≤ pH ≤ 14, PaCO2 > 0 and HCO3 > 0.
+ * see HCO3_CONSISTENCY_TOLERANCE — at the PaCO2 as written or, given the resolution a PaCO2 in kPa
+ * was written with (`paco2ResolutionMmhg`), at any PaCO2 it stands for. `null` unless 0 ≤ pH ≤ 14, PaCO2 > 0 and HCO3 > 0.
  * Sources: `henderson-hasselbalch`, `pneumark-consistency-tolerance`.
  */
-export function acidBaseConsistency(ph: number, paco2Mmhg: number, hco3MmolL: number): AcidBaseConsistency | null {
+export function acidBaseConsistency(ph: number, paco2Mmhg: number, hco3MmolL: number, paco2ResolutionMmhg = 0): AcidBaseConsistency | null {
   if (!allFinite(hco3MmolL) || hco3MmolL <= 0) return null;
   const calculated = hco3FromPhPco2(ph, paco2Mmhg);
   if (calculated === null) return null;
   const difference = finiteOrNull(hco3MmolL - calculated);
-  const tolerance = finiteOrNull(
-    Math.max(HCO3_CONSISTENCY_TOLERANCE.absoluteMmolL, HCO3_CONSISTENCY_TOLERANCE.relative * calculated),
-  );
+  const tolerance = finiteOrNull(consistencyTolerance(calculated));
   if (difference === null || tolerance === null) return null;
   return {
     calculatedHco3MmolL: calculated,
     differenceMmolL: difference,
     toleranceMmolL: tolerance,
-    consistent: Math.abs(difference) <= tolerance,
+    consistent: Math.abs(difference) <= tolerance || fitsWithinResolution(ph, paco2Mmhg, hco3MmolL, paco2ResolutionMmhg),
   };
+}
+
+function consistencyTolerance(calculatedHco3: number): number {
+  return Math.max(HCO3_CONSISTENCY_TOLERANCE.absoluteMmolL, HCO3_CONSISTENCY_TOLERANCE.relative * calculatedHco3);
+}
+
+/**
+ * Whether the HCO3 fits a PaCO2 anywhere within the resolution the PaCO2 was written with (a value
+ * in kPa: 5.3 kPa stands for 5.25–5.35 kPa, 39.4–40.1 mmHg), so that a gas in kPa agrees or
+ * disagrees as the same gas written in mmHg does. The HCO3 pH and PaCO2 give rises with the PaCO2:
+ * it fits when it lies between the two ends' HCO3 or within the tolerance of either end.
+ */
+function fitsWithinResolution(ph: number, paco2Mmhg: number, hco3MmolL: number, resolutionMmhg: number): boolean {
+  if (!(resolutionMmhg > 0) || !Number.isFinite(resolutionMmhg)) return false;
+  const low = hco3FromPhPco2(ph, Math.max(paco2Mmhg - resolutionMmhg, Number.MIN_VALUE));
+  const high = hco3FromPhPco2(ph, paco2Mmhg + resolutionMmhg);
+  if (low === null || high === null) return false;
+  if (hco3MmolL >= low && hco3MmolL <= high) return true;
+  return Math.abs(hco3MmolL - low) <= consistencyTolerance(low) || Math.abs(hco3MmolL - high) <= consistencyTolerance(high);
 }
 
 type Direction = 'acid' | 'alkali';
@@ -629,11 +647,11 @@ export function classifyAcidBase(input: AcidBaseInput): AcidBaseClassification |
   if (!validPh(ph) || !allFinite(paco2, hco3) || paco2 <= 0 || hco3 <= 0) return null;
   if (gap !== undefined && !allFinite(gap)) return null;
   if (!allFinite(gapHco3) || gapHco3 <= 0) return null;
-  const consistency = acidBaseConsistency(ph, paco2, hco3);
+  const resolution = input.paco2ResolutionMmhg !== undefined && allFinite(input.paco2ResolutionMmhg) && input.paco2ResolutionMmhg > 0 ? input.paco2ResolutionMmhg : 0;
+  const consistency = acidBaseConsistency(ph, paco2, hco3, resolution);
   if (consistency === null) return null;
 
   const phStatus: PhStatus = ph < PH_NORMAL.low ? 'acidaemia' : ph > PH_NORMAL.high ? 'alkalaemia' : 'normal';
-  const resolution = input.paco2ResolutionMmhg !== undefined && allFinite(input.paco2ResolutionMmhg) && input.paco2ResolutionMmhg > 0 ? input.paco2ResolutionMmhg : 0;
   const primary = primaryFinding(ph, paco2, hco3, resolution);
   const { compensation, expected, chronicity, additional: fromCompensation } = compensationFor(primary, paco2, hco3, resolution);
 
