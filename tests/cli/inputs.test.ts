@@ -1,9 +1,10 @@
 // Which notes a command reads: paths that look like patterns, exclusions outside the working
 // folder, `.pneuignore` files in the folders scanned, inputs that hold no note, extensions in any
 // case, and notes that are not UTF-8.
-import { chmodSync, mkdirSync, mkdtempSync, readdirSync, symlinkSync, writeFileSync } from 'node:fs';
+import { chmodSync, copyFileSync, mkdirSync, mkdtempSync, readdirSync, symlinkSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { join } from 'node:path';
+import { spawnSync } from 'node:child_process';
+import { join, resolve } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { memoryIo, type MemoryIo } from '../helpers/memory-io';
 import { run } from '../../server/src/cli/main';
@@ -412,19 +413,38 @@ describe('what a folder walk cannot read is a problem, never skipped in silence'
     }
   });
 
-  it.skipIf(process.platform === 'win32' || process.getuid?.() === 0)('the same with real permissions (not as root, which reads anything)', async () => {
+  /**
+   * Runs the command as a user that permissions apply to: in this process, or as root (which reads
+   * anything) the built command line as the unprivileged user `nobody`, through util-linux's setpriv.
+   */
+  async function runUnprivileged(args: string[], cwd: string): Promise<{ status: number; err: string }> {
+    if (process.getuid?.() !== 0) {
+      const out = io(cwd);
+      return { status: await run(args, out), err: out.err() };
+    }
+    // The bundle needs nothing beside it: a copy where that user may read it, wherever the clone is.
+    const bin = tempDir();
+    chmodSync(bin, 0o755);
+    copyFileSync(resolve('dist/cli.js'), join(bin, 'cli.js'));
+    const r = spawnSync('setpriv', ['--reuid=65534', '--regid=65534', '--clear-groups', process.execPath, join(bin, 'cli.js'), ...args], { cwd, encoding: 'utf8', env: { ...process.env, NO_COLOR: '1' } });
+    if (r.error) throw r.error;
+    return { status: r.status ?? -1, err: r.stderr };
+  }
+
+  it.skipIf(process.platform === 'win32')('the same with real permissions (as root, the command runs as an unprivileged user)', async () => {
     const dir = tempDir();
+    chmodSync(dir, 0o755);
     writeFileSync(join(dir, 'a.pneu'), clean);
     mkdirSync(join(dir, 'locked'));
     writeFileSync(join(dir, 'locked', 'b.pneu'), alarming);
     chmodSync(join(dir, 'locked'), 0o000);
     try {
-      const out = io(dir);
-      expect(await run(['check', '.'], out)).toBe(2);
-      expect(out.err()).toContain('pneumark: locked: folder cannot be read (permission denied)');
-      const named = io(dir);
-      expect(await run(['check', 'locked/b.pneu'], named)).toBe(2);
-      expect(named.err()).toBe('pneumark: locked/b.pneu: permission denied (a folder on the way to it cannot be searched)\n');
+      const out = await runUnprivileged(['check', '.'], dir);
+      expect(out.status).toBe(2);
+      expect(out.err).toContain('pneumark: locked: folder cannot be read (permission denied)');
+      const named = await runUnprivileged(['check', 'locked/b.pneu'], dir);
+      expect(named.status).toBe(2);
+      expect(named.err).toBe('pneumark: locked/b.pneu: permission denied (a folder on the way to it cannot be searched)\n');
     } finally {
       chmodSync(join(dir, 'locked'), 0o755);
     }
