@@ -194,6 +194,18 @@ describe('header values in a kPa note', () => {
     // The timepoint itself is in kPa.
     expect(hintsOn(later, 4)[0]?.label).toMatch(/^P\/F [\d.]+ kPa/);
   });
+
+  it('show the standard atmosphere with its geopotential step, with the numbers', () => {
+    // U.S. Standard Atmosphere 1976 (NOAA-S/T 76-1562, from memory): H = r0·z/(r0 + z), r0 = 6,356,766 m;
+    // 3000 m → H = 2998.6 m; 101325 × (1 − 2.25577×10⁻⁵ × H)^5.25588 Pa = 526.0 mmHg.
+    const h = (6356766 * 3000) / (6356766 + 3000);
+    expect(760 * (1 - 2.25577e-5 * h) ** 5.25588).toBeCloseTo(526.0, 1);
+    const result = checkNote(note('place altitude 3000 m', '@ 08:00', 'oxygen room air', 'abg 7.44/33/60/22'), { barometricModel: 'standard' });
+    const tooltip = hintsOn(result, 0)[0]?.tooltipMarkdown ?? '';
+    expect(tooltip).toContain('**526 mmHg**');
+    expect(tooltip).toContain('H = 6,356,766 × 3000 ÷ (6,356,766 + 3000) = 526 mmHg');
+    expect(tooltip).toContain('H is the geopotential altitude');
+  });
 });
 
 describe('a note in mmHg', () => {

@@ -38,7 +38,7 @@ const PLACE_NOT_USABLE: Outcome = { kind: 'missing', needs: ['a usable barometri
 // The formulas and notes of the barometric pressure, and the sea-level input: one object each for every timepoint.
 const PB_STATED: ValueExtras = { formula: 'PB as stated' };
 const PB_WEST: ValueExtras = { formula: 'exp(6.63268 − 0.1112 × {altitude}/1000 − 0.00149 × ({altitude}/1000)²)', notes: ['model atmosphere for high-altitude physiology (West 1996)'] };
-const PB_STANDARD: ValueExtras = { formula: '760 × (1 − 2.25577×10⁻⁵ × {altitude})^5.25588', notes: ['U.S. Standard Atmosphere 1976'] };
+const PB_STANDARD: ValueExtras = { formula: '760 × (1 − 2.25577×10⁻⁵ × H)^5.25588, H = 6,356,766 × {altitude} ÷ (6,356,766 + {altitude})', notes: ['U.S. Standard Atmosphere 1976; H is the geopotential altitude (m) of the altitude stated'] };
 const PB_SEA_LEVEL: ValueExtras = { formula: 'PB assumed at sea level', notes: ['no altitude or barometric pressure in the note: sea level assumed'] };
 const SEA_LEVEL_TERMS: readonly Term[] = [{ name: 'PB', value: SEA_LEVEL_MMHG, unit: 'mmHg', decimals: 0, origin: { kind: 'default', description: 'sea level assumed: no place stated' } }];
 
