@@ -70,6 +70,15 @@ describe('inputs and where they came from', () => {
     expect(derivation('@ 08:00\nvent peep 5\n@ 09:00\noxygen cannula 2\nabg 7.40/40/90/24').missing.find((m) => m.id === 'pf_ratio')?.message).toBe("add fio2 (a cannula's FiO2 is only an estimate) to get P/F");
   });
 
+  it('asks for a usable FiO2, and says where, when the one written is kept out of calculations', () => {
+    // 1.5 with no unit reads as 1.5 %, below room air: impossible (PN307), so not used.
+    const d = derivation('@ 08:00\nvent mode VC, vt 450, rate 14, peep 5, fio2 1.5\nabg 7.40/40/90/24');
+    expect(d.missing.find((m) => m.id === 'pf_ratio')?.message).toBe('add a usable fio2 (the one on line 2 is not used: see its finding) to get P/F');
+    // Carried from an earlier timepoint, it is still the one to mend.
+    const carried = derivation('@ 08:00\noxygen venturi, fio2 0.1\n@ 09:00\nabg 7.40/40/90/24');
+    expect(carried.missing.find((m) => m.id === 'pf_ratio')?.message).toBe('add a usable fio2 (the one on line 2 is not used: see its finding) to get P/F');
+  });
+
   it('names each key to add once, as a list a sentence writes, also through another derived value', () => {
     // The delta ratio needs the anion gap (na, cl, hco3) and an hco3 of its own: hco3 once.
     const labs = derivation('@ 08:00\nlabs na 140');

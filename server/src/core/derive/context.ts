@@ -272,6 +272,9 @@ export class DeriveContext {
 
   /** What to add to get FiO2 (a low-flow device needs a stated FiO2). */
   fio2Need(): string {
+    // An FiO2 is written but kept out of calculations (impossible, or its unit in doubt): mend that one.
+    const written = this.input('fio2');
+    if (written && !written.stated.usable) return `a usable fio2 (the one on line ${written.stated.line + 1} is not used: see its finding)`;
     const device = this.word('device');
     if (device?.word === 'room air' && flowOnRoomAir(this.timepoint.values) !== null) return 'the oxygen device (room air takes no oxygen flow)';
     if (device && (device.word === 'cannula' || device.word === 'mask')) return `fio2 (a ${device.word}'s FiO2 is only an estimate)`;
