@@ -80,6 +80,13 @@ const CHUNK_REST = '(?:[^\\s,#]|(?<=[0-9]),(?=[0-9]))*';
 const NUM = '[-+−]?(?:[0-9]+(?:[.,][0-9]+)?|\\.[0-9]+)';
 /** The start of a number: a chunk that starts so is a value, never a key or a unit. */
 const NUM_START = '[-+−]?\\.?[0-9]';
+/**
+ * How a key starts, as the parser reads one: a letter. The parser takes any letter that has a
+ * case (`startsLikeKey`); here the Latin, Greek and Cyrillic ones, written out as characters
+ * (no \\p{L} or \\x{...}, so the class reads the same in Oniguruma and ECMAScript). A chunk in
+ * key position that starts otherwise (`/`, `-`, `(sitting)`, `°C`) is stray text for the parser.
+ */
+const KEY_START = '[A-Za-zµÀ-ÖØ-öø-ɏͰ-ϿЀ-ԯ]';
 /** A number read as far as the lexer reads it (a shorter number would leave digits behind). */
 const NUM_MAX = '[-+−]?(?:[0-9]+[.,][0-9]+|\\.[0-9]+|[0-9]+(?![.,][0-9]))(?![0-9])';
 /**
@@ -89,6 +96,8 @@ const NUM_MAX = '[-+−]?(?:[0-9]+[.,][0-9]+|\\.[0-9]+|[0-9]+(?![.,][0-9]))(?![0
 const UNREADABLE = `${NUM_MAX}(?=[^\\s#][0-9])(?=(?:[^\\s,#/]|,(?=[0-9]))*/)[^\\s#]${CHUNK_REST}`;
 /** A clock the parser accepts: 00:00 to 23:59, one or two hour digits. */
 const CLOCK = '(?:[01]?[0-9]|2[0-3]):[0-5][0-9]';
+/** Three or four digits that make a time of day without its colon (`0800`, `745`), as the parser reports them after a day. */
+const CLOCK_WITHOUT_COLON = '(?:[01][0-9]|2[0-3]|[0-9])[0-5][0-9]';
 /**
  * An offset the parser accepts: +1d, +1d6h, +1d6h30, +1d30m, +2h, +2h30, +2h30m, +45m, +45min. A
  * part after a larger one stays within it (hours after days 0–23, minutes 0–59, two digits at most).
@@ -161,6 +170,9 @@ function assemble(...parts) {
 }
 
 const numeric = { name: sc('constant.numeric'), patterns: [{ include: '#decimal-comma' }] };
+/** Text the parser reports as stray (PN105): a value with no key, or punctuation where a key goes. */
+const STRAY = 'invalid.illegal.stray';
+const strayNumber = { name: `${sc('constant.numeric')} ${sc(STRAY)}`, patterns: [{ include: '#decimal-comma' }] };
 
 /**
  * A unit after blanks: a known unit (one of two words too, `mm Hg`), unless it is also a key of
@@ -236,11 +248,14 @@ function shorthandLead(units, keys) {
 
 /** Values written where no key comes before them (the parser reports them), or a misplaced shorthand. */
 function strayRules(gas, units) {
-  const slash = assemble(START, cap(gas ? shorthand : pair('meta.pair'), gas ? SHORTHAND : PAIR), END);
-  const number = assemble(START, cap(numeric, NUM), '(?:', cap('keyword.other.unit', units.glued), END, '|', cap('keyword.other.unit.unknown', `[^\\s,#]${CHUNK_REST}`), ')?');
+  const slash = assemble(START, cap(STRAY, gas ? SHORTHAND : PAIR), END);
+  // The number keeps its scope, with the stray scope innermost so that themes show it as invalid.
+  // The parser reports the whole chunk, a unit glued to the number included (`80mmHg`, `0.0/1e3`).
+  const number = assemble(START, cap(strayNumber, NUM), '(?:', cap({ name: `${sc('keyword.other.unit')} ${sc(STRAY)}` }, units.glued), END, '|', cap(STRAY, `[^\\s,#]${CHUNK_REST}`), ')?');
+  const punctuation = assemble(START, `(?!${NUM_START})(?!${KEY_START})`, cap(STRAY, `[^\\s,#]${CHUNK_REST}`), VALUE_END);
   return [
     {
-      comment: gas ? 'A shorthand gas not at the start of the line.' : 'Numbers joined by a slash with no key before them.',
+      comment: gas ? 'A shorthand gas not at the start of the line: stray text for the parser (PN105).' : 'Numbers joined by a slash with no key before them: stray text for the parser (PN105).',
       match: slash.regex,
       captures: slash.captures,
     },
@@ -249,7 +264,8 @@ function strayRules(gas, units) {
       match: `${START}(?:${LONG_PAIR}${END}|${UNREADABLE})`,
       name: sc(gas ? 'invalid.illegal.shorthand-gas' : 'invalid.illegal.pair'),
     },
-    { comment: 'A number with no key before it.', match: number.regex, captures: number.captures },
+    { comment: 'A number with no key before it: stray text for the parser (PN105).', match: number.regex, captures: number.captures },
+    { comment: 'A chunk in key position that does not start with a letter (`/`, `-`, `(sitting)`): never a key, stray text for the parser (PN105).', match: punctuation.regex, captures: punctuation.captures },
   ];
 }
 
@@ -257,7 +273,7 @@ function strayRules(gas, units) {
 function keyValueRule(units, keys) {
   const rule = assemble(
     START,
-    '(?:', cap('variable.other.key', keys), VALUE_END, '|', `(?!${NUM_START})`, cap('variable.other.key.unknown', `[^\\s,#]${CHUNK_REST}`), VALUE_END, ')',
+    '(?:', cap('variable.other.key', keys), VALUE_END, '|', `(?=${KEY_START})`, cap('variable.other.key.unknown', `[^\\s,#]${CHUNK_REST}`), VALUE_END, ')',
     '(?:\\s+(?:',
     cap(pair('meta.pair'), PAIR), groupTail(units, keys),
     '|', cap('invalid.illegal.pair', LONG_PAIR), groupTail(units, keys),
@@ -320,7 +336,9 @@ function timepointRule() {
     LEAD, cap('keyword.operator.timepoint', '@'), '[\\s,]*(?:',
     // day N [HH:MM]; after `day`, a chunk that is no day number, or no clock after it, is marked
     cap('keyword.other.day', ci('day')), '(?:', GAP, '(?:',
-    cap('constant.other.time', '[0-9]+'), '(?:', GAP, '(?:', cap('constant.other.time', CLOCK), VALUE_END, '|', cap('invalid.illegal.time', `[0-9][^\\s,#:]*:${CHUNK_REST}`), '))?', VALUE_END,
+    cap('constant.other.time', '[0-9]+'), '(?:', GAP, '(?:', cap('constant.other.time', CLOCK), VALUE_END, '|', cap('invalid.illegal.time', `[0-9][^\\s,#:]*:${CHUNK_REST}`),
+    // a time of day without its colon (`@ day 2 0800`): reported with a fix, not read as the label
+    '|', cap('invalid.illegal.time', CLOCK_WITHOUT_COLON), END, '))?', VALUE_END,
     '|', cap('invalid.illegal.time', `[^\\s,#]${CHUNK_REST}`),
     '))?', VALUE_END,
     // a time may end the line with a full stop glued on (`@ 08:00.`): read without it, as after items
@@ -337,7 +355,13 @@ function timepointRule() {
     end: '$',
     name: sc('meta.timepoint'),
     // A full stop right after the time is the one the parser leaves out; one after a label is prose.
-    patterns: [{ include: '#comment' }, { match: `\\G${FULL_STOP}`, name: sc('punctuation.terminator.full-stop') }, { match: PROSE, name: sc('entity.name.section.timepoint') }],
+    // A comma right after the time separates it from the label and is not part of it (`@ 08:00, arrival`).
+    patterns: [
+      { include: '#comment' },
+      { match: `\\G${FULL_STOP}`, name: sc('punctuation.terminator.full-stop') },
+      { match: '\\G\\s*(,)', captures: { 1: { name: sc('punctuation.separator.item') } } },
+      { match: PROSE, name: sc('entity.name.section.timepoint') },
+    ],
   };
 }
 

@@ -10,7 +10,7 @@ import { join } from 'node:path';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { fieldFor } from '../../server/src/core/fields/registry';
-import { isKnownUnitSpelling } from '../../server/src/core/fields/units';
+import { unitsForSpelling } from '../../server/src/core/fields/units';
 import { parseLine, splitLines, type LineNode } from '../../server/src/core/index';
 import type { Span } from '../../server/src/core/syntax/tree';
 import { messyLine } from '../service/note-arbitraries';
@@ -45,6 +45,15 @@ function disagreements(node: LineNode, tokens: readonly ScopedToken[]): string[]
     case 'timepoint':
       expectSpan(node.marker.span, 'marker', S('keyword.operator.timepoint'));
       if (node.time) expectSpan(node.time.span, 'time', S('constant.other.time'), S('keyword.other.day'));
+      // A part of the time the parser reports (outside the label, which keeps what it could not read)
+      // is invalid; but for a day or an offset beyond what a note can span (`day 100001`), a limit
+      // the grammar does not count to.
+      for (const issue of node.issues) {
+        if (issue.check !== 'bad-time' || issue.span.start === node.marker.span.start) continue;
+        if (/beyond the last day|longer than a note can span/u.test(issue.message)) continue;
+        if (node.label && issue.span.start >= node.label.span.start) continue;
+        expectSpan(issue.span, 'unreadable time', S('invalid.illegal.time'));
+      }
       if (node.label) {
         // After `@`, a chunk that is no time is reported (PN104) and kept in the label by the
         // parser; the grammar marks it as an unreadable time when it starts with a digit.
@@ -85,7 +94,13 @@ function disagreements(node: LineNode, tokens: readonly ScopedToken[]): string[]
           const known = field?.words?.[value.text.toLowerCase().replace(/\s+/gu, ' ')] !== undefined;
           expectSpan(value.span, 'word', S(known ? 'constant.language' : field?.openWords ? 'constant.other.word' : 'constant.other.word.unknown'));
         }
-        if (item.unit) expectSpan(item.unit.span, 'unit', S(isKnownUnitSpelling(item.unit.text) ? 'keyword.other.unit' : 'keyword.other.unit.unknown'));
+        if (item.unit) expectSpan(item.unit.span, 'unit', S(unitsForSpelling(item.unit.text).length > 0 ? 'keyword.other.unit' : 'keyword.other.unit.unknown'));
+      }
+      // Text the parser reports as stray (a value with no key, punctuation where a key goes) is
+      // invalid for the grammar too, never a key or a plain value.
+      for (const issue of node.issues) {
+        if (issue.check !== 'stray-text' || issue.severity !== undefined) continue;
+        expectSpan(issue.span, 'stray text', S('invalid.illegal.stray'), S('invalid.illegal.pair'), S('invalid.illegal.shorthand-gas'));
       }
       break;
     }
