@@ -268,6 +268,20 @@ describe('section lines', () => {
     expect(at(text, issue?.span)).toBe('7,35');
   });
 
+  it('reports a comma before three digits as a thousands separator or a decimal comma where both readings are possible, offering both and preferring neither', () => {
+    const text = 'place altitude 1,650 m';
+    const issue = section(text).issues.find((i) => i.check === 'decimal-comma');
+    expect(at(text, issue?.span)).toBe('1,650');
+    expect(issue?.message).toContain('thousands separator');
+    expect(issue?.fixes.map((f) => [f.edits[0]?.newText, f.preferred ?? false])).toEqual([['1650', false], ['1.650', false]]);
+    // Bare: possible in a unit the field takes (1000 mL).
+    expect(section('vent vt 1,000').issues[0]?.fixes.map((f) => f.edits[0]?.newText)).toEqual(['1000', '1.000']);
+    // Where the thousands reading is impossible, the comma is a decimal comma as in any number.
+    for (const plain of ['abg ph 7,352', 'vitals hr 1,000', 'vitals temp 38,400', 'place altitude 12,345 m']) {
+      expect(section(plain).issues.map((i) => [i.check, i.fixes.length, i.fixes[0]?.preferred])).toEqual([['decimal-comma', 1, true]]);
+    }
+  });
+
   it('reads a pair as written: its text, span and numbers, the same on every read', () => {
     const text = 'vitals hr 80, bp 120/80, temp 37.1 C';
     const bp = section(text).items.find((i) => i.keyName === 'bp')!;

@@ -171,7 +171,16 @@ describe('reading units', () => {
     expect(codes('@ 08:00\nlabs albumin 31 g/L, hb 11.2')).toEqual([]);
   });
 
-  it('never drops a critical value as "probably the other unit": a bare PaO2 of 20–30 mmHg or PaCO2 of 150–200 mmHg is read as written and flagged as unusual (our convention: doubting such values would take them out of the hypoxaemia and hypercapnia readings)', () => {
+  it('keeps a number that may have a thousands separator (`1,650`) out of use until it is rewritten, and a place so written gives no pressure', () => {
+    const result = checkNote('place altitude 1,650 m\n@ 08:00\noxygen room air\nabg ph 7,352, pco2 40, po2 60\nvent vt 1,000');
+    const t = result.analysis.timeline;
+    expect(t.header.find((v) => v.fieldId === 'altitude')?.usable).toBe(false);
+    expect(t.timepoints[0]?.values.get('vt')?.stated.usable).toBe(false);
+    expect(t.timepoints[0]?.values.get('ph')?.stated.usable).toBe(true);
+    expect(result.findings.filter((f) => f.code === 'PN103')).toHaveLength(3);
+  });
+
+  it('never drops a critical value as "probably the other unit"": a bare PaO2 of 20–30 mmHg or PaCO2 of 150–200 mmHg is read as written and flagged as unusual (our convention: doubting such values would take them out of the hypoxaemia and hypercapnia readings)', () => {
     const low = checkNote('@ 08:00\noxygen room air\nabg ph 7.20, pco2 60, po2 28, hco3 22.6');
     expect(low.findings.filter((f) => f.severity !== 'information').map((f) => f.code)).toEqual(['PN302']);
     expect(low.analysis.timeline.timepoints[0]?.values.get('pao2')?.stated.usable).toBe(true);

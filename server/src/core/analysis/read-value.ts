@@ -7,7 +7,7 @@ import { canonicalWord, FIELDS, keysInSection, type FieldDef } from '../fields/r
 import { SECTIONS, type SectionId } from '../fields/sections';
 import { convert, unitById, UNITS, unitsForSpelling, type UnitDef } from '../fields/units';
 import type { ItemNode, LineFix, PairValue } from '../syntax/tree';
-import { pairNumbers } from '../syntax/parser';
+import { pairNumbers, thousandsReading } from '../syntax/parser';
 import { formatNumber, wordList } from '../util/format';
 import { closest, editDistance } from '../util/suggest';
 import { doubtBoundsAt, softBoundsAt, unitsWithin, within, type BoundsContext } from './bounds';
@@ -199,6 +199,11 @@ export function readItem(item: ItemNode, section: SectionId, line: number, ctx: 
     }
   }
 
+  // `altitude 1,650 m`: a thousands separator or a decimal comma? Reported by the parser (PN103), used by neither reading.
+  if (written !== null && kind === 'number') {
+    const number = item.value;
+    if (number?.kind === 'number' && number.decimalComma && thousandsReading(field, number.text, item.unitText) !== null) usable = false;
+  }
   let unitDoubt: string | null = null;
   if (unitImplied && value !== null && written !== null) {
     const likely = otherUnitLikely(field, value, written, readUnit, canonical, ctx);

@@ -58,9 +58,9 @@ export const missingValue = syntaxCheck('PN102', 'missing-value', 'Key without a
 });
 
 export const decimalComma = syntaxCheck('PN103', 'decimal-comma', 'Decimal comma', 'warning', {
-  fires: 'A number is written with a decimal comma (`7,35`). Commas separate items, so the value is easy to misread.',
+  fires: 'A number is written with a decimal comma (`7,35`). Commas separate items, so the value is easy to misread. A comma before exactly three digits (`altitude 1,650 m`) where a thousands separator would also give a possible value is reported with both readings, and the value is not used in calculations until it is rewritten.',
   example: 'abg ph 7,35, pco2 41',
-  fix: 'Write a decimal point (`7.35`); the quick fix does it, also for the whole note.',
+  fix: 'Write a decimal point (`7.35`); the quick fix does it, also for the whole note. For `1,650` choose `1650` or `1.650`: neither quick fix is applied to the whole note.',
 });
 
 export const badTime = syntaxCheck('PN104', 'bad-time', 'Unreadable time', 'error', {

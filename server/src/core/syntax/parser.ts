@@ -5,7 +5,7 @@
  */
 import { fieldFor, FIELDS, type FieldDef } from '../fields/registry';
 import { SECTIONS, sectionByName, type SectionDef, type SectionId } from '../fields/sections';
-import { isKnownUnitSpelling, UNITS } from '../fields/units';
+import { convert, isKnownUnitSpelling, unitById, unitsForSpelling, UNITS } from '../fields/units';
 import { closest } from '../util/suggest';
 import { Chunk, isBlank, isDigit, leadingNumber, LEXED, lowerCase, releaseWords, scanNumber, scanWord, SCANNED, wordsOf, Word } from './lexer';
 import type {
@@ -1391,6 +1391,21 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
     for (const num of numbers) {
       if (!num.decimalComma) continue;
       const fixed = num.text.replace(',', '.');
+      const thousands = value?.kind === 'number' ? thousandsReading(item.field, num.text, item.unitText) : null;
+      if (thousands !== null) {
+        // `altitude 1,650 m`: read as 1.650 it would be used as a plausible value the writer never meant.
+        const whole = String(thousands);
+        issues.push({
+          check: 'decimal-comma',
+          span: num.span,
+          message: `\`${num.text}\` may be ${whole} written with a thousands separator or ${fixed} with a decimal comma; it is not used in calculations until it is written as one of them.`,
+          fixes: [
+            { title: `Write \`${whole}\``, edits: [{ span: num.span, newText: whole }] },
+            { title: `Write \`${fixed}\``, edits: [{ span: num.span, newText: fixed }] },
+          ],
+        });
+        continue;
+      }
       issues.push({
         check: 'decimal-comma',
         span: num.span,
@@ -1406,6 +1421,31 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
     items[k] = undefined;
   }
   return kept;
+}
+
+/** A number with a comma before exactly three digits (`1,650`): also how a thousands separator is written. */
+const THOUSANDS_LIKE = /^[-+−]?[0-9]{1,3},[0-9]{3}$/u;
+
+/**
+ * The reading of a number written like `1,650` with its comma as a thousands separator (1650), when
+ * that reading is possible for the field (within its hard bounds) in the unit written or, with no
+ * unit written, in a unit the field takes; null otherwise. Such a number is ambiguous: it is reported
+ * with both readings (PN103) and not used until it is rewritten. Where the thousands reading is
+ * impossible the comma is a decimal comma, as for any other number (`ph 7,352` is pH 7.352).
+ */
+export function thousandsReading(field: FieldDef | null, text: string, unitText: string | null): number | null {
+  if (field === null || field.kind !== 'number' || !field.hard || !field.unit || !THOUSANDS_LIKE.test(text)) return null;
+  const canonical = unitById(field.unit);
+  if (!canonical) return null;
+  const value = Number(text.replace(',', '').replace('−', '-'));
+  const units = unitText === null ? (field.units ?? [field.unit]).map((id) => unitById(id)) : unitsForSpelling(unitText).filter((u) => field.units?.includes(u.id));
+  for (const unit of units) {
+    if (!unit) continue;
+    const inCanonical = convert(value, unit, canonical);
+    if (inCanonical === null) continue;
+    if ((field.hard.min === undefined || inCanonical >= field.hard.min) && (field.hard.max === undefined || inCanonical <= field.hard.max)) return value;
+  }
+  return null;
 }
 
 /** The items of the line `parseItems` reads (emptied before it returns). */
