@@ -200,7 +200,7 @@ export function readItem(item: ItemNode, section: SectionId, line: number, ctx: 
   }
 
   // `altitude 1,650 m`: a thousands separator or a decimal comma? Reported by the parser (PN103), used by neither reading.
-  if (written !== null && kind === 'number') {
+  if (written !== null && kind === 'number' && item.hasDecimalComma()) {
     const number = item.value;
     if (number?.kind === 'number' && number.decimalComma && thousandsReading(field, number.text, item.unitText) !== null) usable = false;
   }

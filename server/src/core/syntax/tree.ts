@@ -62,6 +62,8 @@ export interface ItemNode {
   readonly number: number | null;
   /** The text of `unit`, null for none (read without building the token). */
   readonly unitText: string | null;
+  /** Whether a number of the value was written with a decimal comma (asked without building the value). */
+  hasDecimalComma(): boolean;
 }
 
 /** A problem the parser found, reported by the syntax checks under the check's alias. */
