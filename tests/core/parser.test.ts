@@ -548,6 +548,20 @@ describe('timepoints', () => {
     expect(timepoint('@ +1d90m').issues[0]?.fixes[0]?.edits[0]?.newText).toBe('+1d1h30m');
   });
 
+  it('warns of an offset split by a blank (`+2h 30m`), which would read as +2h with a label, and offers it joined', () => {
+    const text = '@ +2h 30m  walk';
+    const node = timepoint(text);
+    // The line still reads: the offset as written, the rest as the label.
+    expect(node.time?.minutes).toBe(120);
+    expect(node.label?.text).toBe('30m  walk');
+    expect(node.issues.map((i) => [i.check, i.severity, at(text, i.span), i.fixes.map((f) => f.edits[0]?.newText)])).toEqual([['bad-time', 'warning', '+2h 30m', ['+2h30m']]]);
+    expect(timepoint('@ +1d 2h').issues[0]?.fixes[0]?.edits[0]?.newText).toBe('+1d2h');
+    // Not when the word is no offset part, when a comma separates it, or when joined it would not read.
+    expect(timepoint('@ +2h 30 min later').issues).toEqual([]);
+    expect(timepoint('@ +2h, 30m later').issues).toEqual([]);
+    expect(timepoint('@ +90m 2h').issues).toEqual([]);
+  });
+
   it('reads clock times and refuses impossible ones', () => {
     expect(readClock('00:00')).toBe(0);
     expect(readClock('7:05')).toBe(425);

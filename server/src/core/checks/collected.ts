@@ -64,9 +64,9 @@ export const decimalComma = syntaxCheck('PN103', 'decimal-comma', 'Decimal comma
 });
 
 export const badTime = syntaxCheck('PN104', 'bad-time', 'Unreadable time', 'error', {
-  fires: 'A timepoint line has no time, an impossible time of day, an unreadable offset, or a calendar date.',
+  fires: 'A timepoint line has no time, an impossible time of day, an unreadable offset, or a calendar date. As a warning: an offset split by a blank (`@ +2h 30m`), which reads as `+2h` with a label starting `30m`.',
   example: '@ 25:10 handover',
-  fix: 'Write `@ day N HH:MM`, `@ HH:MM` or an offset such as `@ +2h30`. Calendar dates are not part of the format: use relative days.',
+  fix: 'Write `@ day N HH:MM`, `@ HH:MM` or an offset such as `@ +2h30` (no blanks inside it; the quick fix joins a split one). Calendar dates are not part of the format: use relative days.',
 });
 
 export const strayText = syntaxCheck('PN105', 'stray-text', 'Stray text', 'error', {

@@ -506,6 +506,7 @@ function parseTimepoint(body: string, chunks: Word[], line: number, text: string
       issues.push({ check: 'bad-time', span: c0.span, message: `\`${c0.text}\` is not an offset; write it like \`+2h30\`, \`+45m\` or \`+1d\`.`, fixes: [] });
     } else {
       time = new TimeNode('offset', null, compact(minutes), body, c0.start, c0.end);
+      splitOffset(body, c0, chunks[at + 1], issues);
     }
   } else {
     const clock = clockAt(body, c0.start, c0.end);
@@ -673,6 +674,29 @@ export function readOffset(text: string): number | null {
  */
 function offsetOverflow(text: string): number | null {
   return offsetMinutes(text, true) === null ? offsetMinutes(text, false) : null;
+}
+
+/** A part of an offset with its unit (`30m`, `2h`, `45min`, `1d`), as it may be left after a blank. */
+const OFFSET_PART = /^[0-9]+(?:d|h|m|min)$/i;
+
+/**
+ * `@ +2h 30m`: a blank inside an offset ends it, and the rest starts the label, so the timepoint is
+ * half an hour early and nothing looks wrong. Reported (a warning: the line still reads) with the
+ * joined offset offered, when the word right after the offset is a part with its unit and the two
+ * together read as an offset.
+ */
+function splitOffset(body: string, offset: Word, next: Word | undefined, issues: SyntaxIssue[]): void {
+  if (!next || next.afterComma || !OFFSET_PART.test(next.text)) return;
+  const joined = `${offset.text}${next.text}`;
+  if (readOffset(joined) === null) return;
+  const span = { start: offset.start, end: next.end };
+  issues.push({
+    check: 'bad-time',
+    severity: 'warning',
+    span,
+    message: `\`${body.slice(span.start, span.end)}\` reads as the offset \`${offset.text}\` and a label starting \`${next.text}\`: an offset has no blanks. Did you mean \`${joined}\`?`,
+    fixes: [{ title: `Write \`${joined}\``, edits: [{ span, newText: joined }], preferred: true }],
+  });
 }
 
 /** The last day a note can name (`@ day 100000`), and the longest offset: about 270 years, far beyond any note, and kept exactly by a number. */
