@@ -8,6 +8,7 @@ import { SECTIONS, type SectionId } from '../fields/sections';
 import { convert, unitById, UNITS, unitsForSpelling, type UnitDef } from '../fields/units';
 import type { ItemNode, LineFix, PairValue } from '../syntax/tree';
 import { pairNumbers, thousandsReading } from '../syntax/parser';
+import { scanNumber } from '../syntax/lexer';
 import { formatNumber, wordList } from '../util/format';
 import { closest, editDistance } from '../util/suggest';
 import { doubtBoundsAt, softBoundsAt, unitsWithin, within, type BoundsContext } from './bounds';
@@ -147,7 +148,9 @@ export function readItem(item: ItemNode, section: SectionId, line: number, ctx: 
   if (kind === null) return null;
 
   if (field.kind === 'word') {
-    const word = canonicalWord(field, item.value!.text);
+    // A field open to any word (a ventilator mode) still takes no number (`mode 10`).
+    const text = item.value!.text;
+    const word = field.openWords && (kind !== 'word' || isNumberText(text)) ? null : canonicalWord(field, text);
     if (word === null) {
       issues.push(unknownWordIssue(item, field, line));
       return new Stated(field, section, line, item, null, null, null, null, false, null, false);
@@ -216,6 +219,11 @@ export function readItem(item: ItemNode, section: SectionId, line: number, ctx: 
   return new Stated(field, section, line, item, value, parts, null, readUnit.id, unitImplied, unitDoubt, usable);
 }
 
+/** Whether a value's text is a number and nothing else (`10`, `7.5`, `-2`). */
+function isNumberText(text: string): boolean {
+  return text.length > 0 && scanNumber(text) === text.length;
+}
+
 function unknownWordIssue(item: ItemNode, field: FieldDef, line: number): ReadIssue {
   const value = item.value!;
   const known = [...new Set(Object.values(field.words ?? {}))];
@@ -224,7 +232,9 @@ function unknownWordIssue(item: ItemNode, field: FieldDef, line: number): ReadIs
     check: 'unknown-word',
     line,
     span: value.span,
-    message: `\`${value.text}\` is not a known value for ${field.label.toLowerCase()}; expected one of: ${known.join(', ')}.`,
+    message: field.openWords
+      ? `\`${value.text}\` is a number, not a ${field.label.toLowerCase()}: write a word, e.g. ${known.join(', ')}.`
+      : `\`${value.text}\` is not a known value for ${field.label.toLowerCase()}; expected one of: ${known.join(', ')}.`,
     fixes: near.map((w) => ({ title: `Change to \`${field.words?.[w] ?? w}\``, edits: [{ span: value.span, newText: field.words?.[w] ?? w }] })),
   };
 }

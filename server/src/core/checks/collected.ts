@@ -106,7 +106,7 @@ export const otherUnitLikely = readCheck('PN204', 'other-unit-likely', 'Value re
 });
 
 export const unknownWord = readCheck('PN205', 'unknown-word', 'Unknown word value', 'error', ['units'], FORMAT_RULE, {
-  fires: 'A field that takes a word (sex, device, gas unit) has a word Pneumark does not know.',
+  fires: 'A field that takes a word (sex, device, gas unit) has a word Pneumark does not know, or the ventilator mode, which takes any word, has a number (`mode 10`).',
   example: 'oxygen device canula',
   fix: 'Use one of the words listed in the message; the quick fix offers the nearest.',
 });

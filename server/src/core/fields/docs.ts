@@ -32,7 +32,7 @@ function wordsText(field: FieldDef): string {
     others.set(word, list);
   }
   const words = [...others].map(([word, list]) => (list.length > 0 ? `${word} (or ${list.join(', ')})` : word));
-  return `word: ${words.join(', ')}${field.openWords ? ', or any word' : ''}`;
+  return `word: ${words.join(', ')}${field.openWords ? ', or any word (not a number)' : ''}`;
 }
 
 function loincCell(code: LoincCode): string {
