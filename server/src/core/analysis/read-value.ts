@@ -202,6 +202,8 @@ export function readItem(item: ItemNode, section: SectionId, line: number, ctx: 
     }
   }
 
+  // `spo2 0.94`: a saturation written as a fraction, not 0.94 %; reported (PN302, with the percentage offered), not used.
+  if (usable && value !== null && written !== null && isSaturationFraction(field, written, item)) usable = false;
   // `altitude 1,650 m`: a thousands separator or a decimal comma? Reported by the parser (PN103), used by neither reading.
   if (written !== null && kind === 'number' && item.hasDecimalComma()) {
     const number = item.value;
@@ -217,6 +219,17 @@ export function readItem(item: ItemNode, section: SectionId, line: number, ctx: 
     }
   }
   return new Stated(field, section, line, item, value, parts, null, readUnit.id, unitImplied, unitDoubt, usable);
+}
+
+/**
+ * A saturation (in % of haemoglobin) written as a fraction: above 0 and at most 1, with decimals
+ * (`spo2 0.94`, `sao2 .9`) and no unit written. As a percentage it would be far below anything
+ * measured in a living patient; as a fraction it is an ordinary saturation.
+ */
+export function isSaturationFraction(field: FieldDef, written: number, item: ItemNode): boolean {
+  if (field.unit !== '%sat' || item.unitText !== null || !(written > 0 && written <= 1)) return false;
+  const text = item.value?.text ?? '';
+  return text.includes('.') || text.includes(',');
 }
 
 /** Whether a value's text is a number and nothing else (`10`, `7.5`, `-2`). */

@@ -6,10 +6,11 @@
 import { softBoundsAt, unitsWithin, within } from '../analysis/bounds';
 import type { StatedValue } from '../analysis/model';
 import type { Bounds, FieldDef } from '../fields/registry';
-import { displayUnit } from '../analysis/read-value';
+import { displayUnit, isSaturationFraction } from '../analysis/read-value';
+import { writtenDecimals } from '../present';
 import { convert, unitById, type UnitDef } from '../fields/units';
 import { toRange } from '../syntax/tree';
-import { formatAgainst } from '../util/format';
+import { formatAgainst, formatNumber } from '../util/format';
 import { defineCheck, type CheckContext, type CheckDef } from './check';
 import type { Fix } from '../types';
 
@@ -129,7 +130,7 @@ export const unusualValue = defineCheck({
   severity: 'warning',
   tags: ['plausibility'],
   doc: {
-    fires: 'A value is possible but outside the usual (soft) bounds of its field: worth a second look at the unit or the transcription. Low arterial gas pressures are not flagged where the barometric pressure is below 500 mmHg, since they are real at extreme altitude.',
+    fires: 'A value is possible but outside the usual (soft) bounds of its field: worth a second look at the unit or the transcription. Low arterial gas pressures are not flagged where the barometric pressure is below 500 mmHg, since they are real at extreme altitude. A saturation written as a fraction with no unit (`spo2 0.94`) is reported with the percentage offered, and is not used until it is rewritten.',
     example: 'vitals hr 236',
     fix: 'Confirm the value; if it is right, the warning can stay (or the check can be switched off in settings).',
   },
@@ -138,6 +139,16 @@ export const unusualValue = defineCheck({
     const field = stated.field;
     // Most values are within the usual bounds, which a low barometric pressure only widens: asked first.
     if (!field.soft || !outOfBounds(stated, field.soft)) return;
+    if (stated.value !== null && stated.item.number !== null && isSaturationFraction(field, stated.item.number, stated.item)) {
+      const percent = formatNumber(stated.item.number * 100, Math.max(0, writtenDecimals(stated.item.value?.text ?? '') - 2));
+      const span = stated.item.value?.span ?? stated.item.span;
+      ctx.report({
+        range: toRange(stated.line, span),
+        message: `${field.short ?? field.label} ${stated.item.value?.text ?? ''} reads as ${stated.item.value?.text ?? ''} %, far below any measured saturation: a fraction for ${percent} %? It is not used in calculations until it is written as a percentage.`,
+        fixes: [{ title: `Write \`${percent}\``, edits: [{ range: toRange(stated.line, span), newText: percent }], preferred: true }],
+      });
+      return;
+    }
     if (OWN_CHECKS.has(field.id) || !stated.usable || stated.readUnit === null || stated.unitDoubt) return;
     if (field.hard && outOfBounds(stated, field.hard)) return;
     const soft = softBoundsAt(field, barometricMmhg);
