@@ -242,6 +242,19 @@ describe('convertNoteUnits', () => {
     expect(convertNoteUnits(checkNote(note('units gas mmHg', '@ 08:00', 'abg po2 9.1')), 'mmHg')).toEqual([]);
   });
 
+  it('converts the other pressure of a shorthand gas with one in doubt, and leaves that one as written', () => {
+    // PaCO2 40 mmHg is ordinary; PaO2 9.1 is implausible in mmHg and ordinary in kPa (PN204). A
+    // shorthand has one unit for both, so none is written: in kPa both read as meant.
+    const text = note('@ 08:00', 'abg 7.35/40/9.1/24');
+    const converted = applyEdits(text, convertNoteUnits(checkNote(text), 'kPa'));
+    expect(converted).toBe(note('units     gas kPa', '@ 08:00', 'abg 7.35/5.3/9.1/24'));
+    const again = checkNote(converted);
+    expect(again.findings.filter((f) => f.severity !== 'information').map((f) => f.code)).toEqual([]);
+    expect(stated(again).filter((s) => s.fieldId === 'pao2' || s.fieldId === 'paco2').map((s) => [s.fieldId, s.readUnit, s.unitDoubt])).toEqual([['paco2', 'kPa', null], ['pao2', 'kPa', null]]);
+    // To the unit in force: nothing to do, and the doubt stays for the writer.
+    expect(convertNoteUnits(checkNote(text), 'mmHg').filter((e) => e.range.start.line === 1)).toEqual([]);
+  });
+
   it('keeps an unusual value as read, with its unit written', () => {
     const text = note('@ 08:00', 'abg po2 800');
     expect(applyEdits(text, convertNoteUnits(checkNote(text), 'kPa'))).toBe(note('units     gas kPa', '@ 08:00', 'abg po2 800 mmHg'));

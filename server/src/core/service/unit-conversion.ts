@@ -200,7 +200,8 @@ function unitsLineInsertion(result: NoteResult): number {
  * whose unit is in doubt (PN204) is left as written: writing out the unit it was read in would
  * state the unit Pneumark found implausible, and put a number kept out of calculations into
  * them; left bare, it is read in the note's new gas unit, the one it is ordinary in (or stays
- * in doubt when the note keeps its unit). Converting twice changes nothing the second time.
+ * in doubt when the note keeps its unit); in a bare shorthand gas, the other pressure is converted
+ * and left bare beside it. Converting twice changes nothing the second time.
  */
 export function convertNoteUnits(result: NoteResult, to: GasUnit): TextEdit[] {
   const edits: TextEdit[] = [];
@@ -281,12 +282,31 @@ function valueEdits(s: StatedValue, field: FieldDef, to: GasUnit, bareAfter: Gas
   return edits;
 }
 
+/**
+ * A bare shorthand gas with a pressure in doubt (PN204: implausible in the unit in force, ordinary
+ * in the other). A shorthand has one unit for its two pressures, so none is written: every pressure
+ * is left bare and read in the note's new gas unit. A pressure in doubt is left as written (in the
+ * new unit it is ordinary: `7.35/40/9.1/24` in mmHg has a PaO2 of 9.1 kPa), the others are converted
+ * (`7.35/5.3/9.1/24` in kPa). Left as it is when converting to the unit in force, or when another
+ * pressure is unusual too.
+ */
+function shorthandWithDoubt(sh: ShorthandPressures, to: GasUnit, bareAfter: GasUnit | null, readUnit: string): TextEdit[] {
+  if (readUnit === to || bareAfter !== to) return [];
+  const edits: TextEdit[] = [];
+  for (const s of sh.parts) {
+    if (s.unitDoubt) continue;
+    const number = ordinary(s, s.field) ? numberIn(s, s.field, to) : null;
+    if (number === null || !s.item.value) return [];
+    edits.push({ range: lineRange(sh.node.line, s.item.value.span.start, s.item.value.span.end), newText: number });
+  }
+  return edits;
+}
+
 function shorthandEdits(sh: ShorthandPressures, to: GasUnit, bareAfter: GasUnit | null): TextEdit[] {
   const line = sh.node.line;
   const readUnit = sh.parts[0]?.readUnit ?? null;
   if (!readUnit || sh.parts.some((p) => p.readUnit !== readUnit || p.value === null)) return [];
-  // Every pressure in doubt (`7.35/5.3/9.1/24` read in mmHg): left bare, as a single one is.
-  if (!sh.unit && sh.parts.every((p) => p.unitDoubt)) return [];
+  if (!sh.unit && sh.parts.some((p) => p.unitDoubt)) return shorthandWithDoubt(sh, to, bareAfter, readUnit);
   if (sh.parts.some((p) => !ordinary(p, p.field))) return keepAsRead(line, sh.end, sh.unit !== null, readUnit, bareAfter);
   const edits: TextEdit[] = [];
   if (readUnit !== to) {
