@@ -174,6 +174,16 @@ describe('the trend view', () => {
     expect(state.panels[1]!.postedOf('trends')).toHaveLength(1);
   });
 
+  it('names a note whose file name holds characters that reorder text with those characters escaped', async () => {
+    const { send } = server();
+    view = new TrendView(extensionUri, () => send, 10);
+    const editor = openEditor('/work/a\u202Eunp.pneu', '@ 08:00');
+    view.show(editor.document as never);
+    await vi.runAllTimersAsync();
+    expect(panel().title).toBe('Trends: a\\u{202E}unp.pneu');
+    expect(lastPosted()).toMatchObject({ type: 'trends', note: 'a\\u{202E}unp.pneu' });
+  });
+
   it('says why it shows nothing outside a note', () => {
     view = new TrendView(extensionUri, () => null, 10);
     const editor = openEditor('/work/README.md', '# x', { languageId: 'markdown' });
