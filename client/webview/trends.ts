@@ -9,7 +9,7 @@
  */
 import uPlot from 'uplot';
 import type { TrendPoint } from '../../server/src/protocol';
-import { toWebview, type FromWebview, type TrendViewState } from './messages';
+import { toWebview, type FromWebview, type ToWebview, type TrendViewState } from './messages';
 import { emptyMessage, legendText, panelLayouts, shownText, timepointTable, xAxis } from './panels';
 
 interface VsCodeApi {
@@ -53,6 +53,8 @@ function paragraph(className: string, text: string): HTMLParagraphElement {
 
 function render(list: readonly TrendPoint[], note: string, closed: boolean): void {
   points = list;
+  lastNote = note;
+  lastClosed = closed;
   for (const c of charts.splice(0)) c.destroy();
   const main = document.getElementById('charts');
   const title = document.getElementById('title');
@@ -174,6 +176,27 @@ function showText(className: string, text: string): void {
   if (main) main.replaceChildren(paragraph(className, text));
 }
 
+/**
+ * The latest message not drawn yet. Messages are drawn once those that arrived meanwhile have been
+ * read, and only the last of them: drawing a long note takes a while, and a note edited at speed
+ * sends its trends again after each analysis, so the page would otherwise fall ever further behind,
+ * drawing each one in turn.
+ */
+let latest: ToWebview | null = null;
+
+function drawLatest(): void {
+  const m = latest;
+  latest = null;
+  if (!m) return;
+  if (m.type === 'trends') render(m.points, m.note, m.closed);
+  if (m.type === 'error') showText('error', `Trends could not be loaded: ${m.message}`);
+  if (m.type === 'notice') {
+    const title = document.getElementById('title');
+    if (title) title.textContent = 'Trends';
+    showText('empty', m.message);
+  }
+}
+
 window.addEventListener('message', (event: MessageEvent<unknown>) => {
   // Checked before anything is drawn or kept: a message of another shape changes nothing.
   const m = toWebview(event.data);
@@ -183,18 +206,11 @@ window.addEventListener('message', (event: MessageEvent<unknown>) => {
   }
   received = true;
   if (m.type === 'trends') {
-    lastNote = m.note;
-    lastClosed = m.closed;
     // Kept by VS Code across a reload of the window, for the serializer to reopen this note.
     vscode.setState({ uri: m.uri });
-    render(m.points, m.note, m.closed);
   }
-  if (m.type === 'error') showText('error', `Trends could not be loaded: ${m.message}`);
-  if (m.type === 'notice') {
-    const title = document.getElementById('title');
-    if (title) title.textContent = 'Trends';
-    showText('empty', m.message);
-  }
+  if (latest === null) window.setTimeout(drawLatest, 0);
+  latest = m;
 });
 
 let resizeTimer: number | undefined;

@@ -4,7 +4,7 @@
 // that go back and a server that stops and starts again.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { TrendPoint } from '../../server/src/protocol';
-import { hasChromium, launch, openTrendPage, shutdown, type TrendPage } from './browser';
+import { hasChromium, launch, openTrendPage, shutdown, until, type TrendPage } from './browser';
 
 function point(i: number, label: string, minutes: number | null, pao2: number | null = 70 + i): TrendPoint {
   return { timepoint: i + 1, label, line: i * 2, minutes, values: { pao2: { value: pao2 as number, unit: 'mmHg' }, ph: { value: 7.3, unit: 'pH' } }, carried: [] };
@@ -85,12 +85,18 @@ describe.skipIf(!hasChromium)('the trend page in a browser', () => {
     await t.close();
   });
 
-  it('draws a note of 5,000 timepoints', async () => {
-    const t = await openTrendPage();
+  it('draws a note of 5,000 timepoints, and only the last of the trends that came while it drew', async () => {
+    // Counts what the page draws: its title is written once per drawing.
+    const t = await openTrendPage({ initScript: `window.__drawn = []; addEventListener('DOMContentLoaded', () => new MutationObserver(() => window.__drawn.push(document.getElementById('title').textContent)).observe(document.getElementById('title'), { childList: true, characterData: true, subtree: true }));` });
     const points = Array.from({ length: 5000 }, (_, i) => point(i, `day ${Math.floor(i / 24) + 1} ${i % 24}:00`, i * 60));
     await t.send(trends(points, 'long.pneu'));
     expect(await t.page.locator('section.values tbody tr').count()).toBe(5000);
     expect(await t.page.locator('section.panel').count()).toBe(2);
+    // A note edited at speed: its trends come again after each analysis, faster than they are drawn.
+    await t.page.evaluate('window.__drawn.length = 0');
+    await t.page.evaluate(`for (let i = 1; i <= 5; i++) window.postMessage({ ...${JSON.stringify(trends(points, 'long.pneu'))}, note: 'long ' + i + '.pneu' }, '*')`);
+    await until(t.page, `document.getElementById('title').textContent === 'Trends — long 5.pneu'`);
+    expect(await t.page.evaluate('window.__drawn')).toEqual(['Trends — long 5.pneu']);
     expect(t.problems).toEqual([]);
     await t.close();
   }, 60_000);

@@ -30,6 +30,18 @@ export interface TrendPage {
 
 let browser: Browser | null = null;
 
+/**
+ * Waits until an expression is true in the page. (Playwright's waitForFunction evaluates a string
+ * with eval, which the page's policy refuses, as it should.)
+ */
+export async function until(page: Page, expression: string, timeoutMs = 20_000): Promise<void> {
+  const end = Date.now() + timeoutMs;
+  while (!(await page.evaluate(expression))) {
+    if (Date.now() > end) throw new Error(`timed out waiting for ${expression}`);
+    await new Promise((r) => setTimeout(r, 20));
+  }
+}
+
 export async function launch(): Promise<void> {
   browser ??= await chromium.launch({ executablePath: CHROMIUM, headless: true, args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-background-networking', '--no-first-run'] });
 }
@@ -71,7 +83,7 @@ export async function openTrendPage(options: { width?: number; initScript?: stri
     ${options.initScript ?? ''}
   `);
   await page.goto(`${ORIGIN}/index.html`);
-  await page.waitForFunction('window.__posted.length > 0');
+  await until(page, 'window.__posted.length > 0');
   return {
     page,
     problems,
