@@ -201,6 +201,11 @@ export class TrendView implements vscode.Disposable, vscode.WebviewPanelSerializ
         await this.post({ type: 'trends', points: this.last.points, note, uri: key, closed: true });
         return;
       }
+      if (result?.notAnalysed) {
+        this.last = null;
+        await this.post({ type: 'notice', message: `${note}: ${result.notAnalysed}`, uri: key });
+        return;
+      }
       const points = result?.points ?? [];
       this.last = { uri: key, points };
       await this.post({ type: 'trends', points, note, uri: key, closed: false });

@@ -13,8 +13,11 @@ export type ToWebview =
    */
   | { readonly type: 'trends'; readonly points: readonly TrendPoint[]; readonly note: string; readonly uri: string; readonly closed: boolean }
   | { readonly type: 'error'; readonly message: string }
-  /** Nothing to plot, and why (no note, a note that cannot be opened again). */
-  | { readonly type: 'notice'; readonly message: string };
+  /**
+   * Nothing to plot, and why (no note, a note that cannot be opened again, a note too large to be
+   * analysed). `uri`: the note it is about, when the view shows one, kept for a reload as for trends.
+   */
+  | { readonly type: 'notice'; readonly message: string; readonly uri?: string };
 
 export type FromWebview =
   | { readonly type: 'ready' }
@@ -66,7 +69,7 @@ const trendPointSchema = z.object({
 const toWebviewSchema = z.discriminatedUnion('type', [
   z.object({ type: z.literal('trends'), points: z.array(trendPointSchema), note: z.string(), uri: z.string(), closed: z.boolean() }),
   z.object({ type: z.literal('error'), message: z.string() }),
-  z.object({ type: z.literal('notice'), message: z.string() }),
+  z.object({ type: z.literal('notice'), message: z.string(), uri: z.optional(z.string()) }),
 ]);
 
 /**
@@ -78,7 +81,8 @@ export function toWebview(value: unknown): ToWebview | null {
   const parsed = toWebviewSchema.safeParse(value);
   if (!parsed.success) return null;
   const m = parsed.data;
-  if (m.type !== 'trends') return m;
+  if (m.type === 'error') return { type: 'error', message: m.message };
+  if (m.type === 'notice') return m.uri === undefined ? { type: 'notice', message: m.message } : { type: 'notice', message: m.message, uri: m.uri };
   const points = m.points.map((p): TrendPoint => {
     const values: Partial<Record<TrendSeries, TrendValue>> = {};
     for (const key of TREND_SERIES) {

@@ -205,10 +205,9 @@ window.addEventListener('message', (event: MessageEvent<unknown>) => {
     return;
   }
   received = true;
-  if (m.type === 'trends') {
-    // Kept by VS Code across a reload of the window, for the serializer to reopen this note.
-    vscode.setState({ uri: m.uri });
-  }
+  // Kept by VS Code across a reload of the window, for the serializer to reopen this note.
+  const uri = m.type === 'error' ? undefined : m.uri;
+  if (uri !== undefined) vscode.setState({ uri });
   if (latest === null) window.setTimeout(drawLatest, 0);
   latest = m;
 });

@@ -50,6 +50,7 @@ describe('messages to the page', () => {
     expect(toWebview(trends)).toEqual(trends);
     expect(toWebview({ type: 'error', message: 'x' })).toEqual({ type: 'error', message: 'x' });
     expect(toWebview({ type: 'notice', message: 'y' })).toEqual({ type: 'notice', message: 'y' });
+    expect(toWebview({ type: 'notice', message: 'y', uri: 'file:///n/a.pneu' })).toEqual({ type: 'notice', message: 'y', uri: 'file:///n/a.pneu' });
     for (const bad of [null, 'trends', { type: 'trends' }, { ...trends, points: 'x' }, { ...trends, note: 3 }, { ...trends, points: [{ ...point, values: null }] },
       { ...trends, points: [{ ...point, values: { pao2: { value: 1, unit: 'furlong' } } }] }, { ...trends, points: [{ ...point, carried: ['eval'] }] },
       { ...trends, points: [{ ...point, line: -1 }] }, { type: 'error' }, { type: 'html', html: '<b>' }]) expect(toWebview(bad)).toBeNull();
