@@ -6,6 +6,7 @@
  */
 import * as vscode from 'vscode';
 import { CONVERT_UNITS_REQUEST, type ConvertUnitsParams, type PlainTextEdit } from '../../server/src/protocol';
+import { inMessage } from './message-text';
 import { LANGUAGE, type Requester } from './status';
 
 function activeNote(purpose: string): vscode.TextEditor | null {
@@ -16,7 +17,7 @@ function activeNote(purpose: string): vscode.TextEditor | null {
 }
 
 function readOnlyMessage(document: vscode.TextDocument): string {
-  return `${document.isUntitled ? 'This note' : vscode.workspace.asRelativePath(document.uri)} could not be changed: it is read-only.`;
+  return `${document.isUntitled ? 'This note' : inMessage(vscode.workspace.asRelativePath(document.uri))} could not be changed: it is read-only.`;
 }
 
 export async function convertNoteUnits(send: Requester | null): Promise<void> {
@@ -41,7 +42,7 @@ export async function convertNoteUnits(send: Requester | null): Promise<void> {
   try {
     edits = await send<PlainTextEdit[]>(CONVERT_UNITS_REQUEST, { uri: document.uri.toString(), to } satisfies ConvertUnitsParams);
   } catch (error) {
-    void vscode.window.showErrorMessage(`The gas units could not be converted: ${error instanceof Error ? error.message : String(error)}`);
+    void vscode.window.showErrorMessage(`The gas units could not be converted: ${inMessage(error instanceof Error ? error.message : String(error))}`);
     return;
   }
   if (document.isClosed) return;
@@ -158,7 +159,7 @@ export async function openCheckDocs(extensionUri: vscode.Uri, name?: unknown): P
   let check: CheckDoc | undefined;
   if (typeof name === 'string' && name.trim() !== '') {
     check = findCheck(docs, name);
-    if (!check) void vscode.window.showInformationMessage(`${name} is not a Pneumark check: showing the list of checks.`);
+    if (!check) void vscode.window.showInformationMessage(`${inMessage(name)} is not a Pneumark check: showing the list of checks.`);
   } else {
     const picked = await vscode.window.showQuickPick(
       [{ label: 'All checks', description: 'the whole list', check: undefined as CheckDoc | undefined },

@@ -105,11 +105,12 @@ function noteFor(resource: unknown): vscode.TextDocument | undefined {
 }
 
 function createClient(output: vscode.LogOutputChannel, trace: vscode.LogOutputChannel, crashes: CrashHandler, didChangeConfiguration: NonNullable<NonNullable<Middleware['workspace']>['didChangeConfiguration']>, module: string): LanguageClient {
-  const serverOptions: ServerOptions = {
-    // stdio: the server writes its messages as ASCII JSON there, which keeps big notes cheap to publish.
-    run: { module, transport: TransportKind.stdio },
-    debug: { module, transport: TransportKind.stdio, options: { execArgv: ['--nolazy', '--inspect=6019'] } },
-  };
+  // stdio: the server writes its messages as ASCII JSON there, which keeps big notes cheap to publish.
+  // The same when the extension host is being debugged (any extension's F5 session runs the
+  // installed extensions with --inspect): the server never opens an inspector port, which would let
+  // any local process run code in it.
+  const node = { module, transport: TransportKind.stdio } as const;
+  const serverOptions: ServerOptions = { run: node, debug: node };
   const clientOptions: LanguageClientOptions = {
     documentSelector: [{ language: LANGUAGE }],
     synchronize: { fileEvents: vscode.workspace.createFileSystemWatcher('**/pneumark.config.json') },

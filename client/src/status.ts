@@ -7,6 +7,7 @@
  */
 import * as vscode from 'vscode';
 import { SUMMARY_REQUEST, type SummaryParams, type SummaryResult } from '../../server/src/protocol';
+import { shownName } from './message-text';
 
 export const LANGUAGE = 'pneumark';
 
@@ -14,8 +15,10 @@ export const LANGUAGE = 'pneumark';
 export type Requester = <R>(method: string, params: unknown) => Promise<R>;
 
 /** What the item shows for a summary: its text, tooltip and the name a screen reader reads. */
-export function statusContent(summary: SummaryResult): { text: string; tooltip: string; accessibleName: string } {
-  // A label from the note is text: `$(name)` in it must not turn into an icon.
+export function statusContent(raw: SummaryResult): { text: string; tooltip: string; accessibleName: string } {
+  // A label from the note is text: characters that reorder or hide text are shown as escapes.
+  const summary = { label: shownName(raw.label), text: shownName(raw.text), tooltip: raw.tooltip.split('\n').map(shownName).join('\n') };
+  // `$(name)` in it must not turn into an icon.
   const text = `$(pulse) ${summary.text.replace(/\$\(/g, '\\$(')}`;
   const figures = summary.text.split(' · ').join(', ');
   const accessibleName = summary.text === summary.label

@@ -13,6 +13,7 @@ import { randomBytes } from 'node:crypto';
 import * as vscode from 'vscode';
 import { TRENDS_REQUEST, type TrendPoint, type TrendsParams, type TrendsResult } from '../../server/src/protocol';
 import { fromWebview, trendViewState, type FromWebview, type ToWebview } from '../webview/messages';
+import { inMessage, shownName } from './message-text';
 import { LANGUAGE, type Requester } from './status';
 import { trendPageHtml } from './trend-html';
 
@@ -127,8 +128,9 @@ export class TrendView implements vscode.Disposable, vscode.WebviewPanelSerializ
     void this.refresh();
   }
 
+  /** The note's name as the view shows it (its title, its messages): see message-text.ts. */
   private name(uri: vscode.Uri): string {
-    return uri.scheme === 'untitled' ? uri.path : vscode.workspace.asRelativePath(uri);
+    return shownName(uri.scheme === 'untitled' ? uri.path : vscode.workspace.asRelativePath(uri));
   }
 
   private adopt(panel: vscode.WebviewPanel): void {
@@ -199,6 +201,11 @@ export class TrendView implements vscode.Disposable, vscode.WebviewPanelSerializ
         await this.post({ type: 'trends', points: this.last.points, note, uri: key, closed: true });
         return;
       }
+      if (result?.notAnalysed) {
+        this.last = null;
+        await this.post({ type: 'notice', message: `${note}: ${result.notAnalysed}`, uri: key });
+        return;
+      }
       const points = result?.points ?? [];
       this.last = { uri: key, points };
       await this.post({ type: 'trends', points, note, uri: key, closed: false });
@@ -242,7 +249,7 @@ export class TrendView implements vscode.Disposable, vscode.WebviewPanelSerializ
     try {
       await vscode.window.showTextDocument(uri, { viewColumn, selection: new vscode.Range(position, position), preserveFocus: false });
     } catch {
-      void vscode.window.showWarningMessage(`${this.name(uri)} could not be opened: it may have been moved, deleted or closed without being saved.`);
+      void vscode.window.showWarningMessage(`${inMessage(this.name(uri))} could not be opened: it may have been moved, deleted or closed without being saved.`);
     }
   }
 }

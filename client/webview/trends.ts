@@ -9,8 +9,8 @@
  */
 import uPlot from 'uplot';
 import type { TrendPoint } from '../../server/src/protocol';
-import type { FromWebview, ToWebview, TrendViewState } from './messages';
-import { emptyMessage, legendText, panelLayouts, timepointTable } from './panels';
+import { toWebview, type FromWebview, type ToWebview, type TrendViewState } from './messages';
+import { emptyMessage, legendText, panelLayouts, shownText, timepointTable, xAxis } from './panels';
 
 interface VsCodeApi {
   postMessage(message: FromWebview): void;
@@ -40,12 +40,6 @@ function highContrast(): boolean {
   return document.body.classList.contains('vscode-high-contrast') || document.body.classList.contains('vscode-high-contrast-light');
 }
 
-/** x values: hours since day 1 00:00 when every timepoint has a time, else the timepoint number. */
-function xValues(list: readonly TrendPoint[]): { xs: number[]; hours: boolean } {
-  const hours = list.length > 0 && list.every((p) => p.minutes !== null);
-  return { xs: list.map((p, i) => (hours ? (p.minutes ?? 0) / 60 : i + 1)), hours };
-}
-
 function reveal(line: number): void {
   vscode.postMessage({ type: 'reveal', line });
 }
@@ -59,10 +53,12 @@ function paragraph(className: string, text: string): HTMLParagraphElement {
 
 function render(list: readonly TrendPoint[], note: string, closed: boolean): void {
   points = list;
+  lastNote = note;
+  lastClosed = closed;
   for (const c of charts.splice(0)) c.destroy();
   const main = document.getElementById('charts');
   const title = document.getElementById('title');
-  if (title) title.textContent = `Trends — ${note}`;
+  if (title) title.textContent = `Trends — ${shownText(note)}`;
   if (!main) return;
   main.replaceChildren();
   if (closed) main.append(paragraph('notice', 'This note is closed: these are its trends as they were when it closed. Go to a timepoint to open it again.'));
@@ -71,7 +67,7 @@ function render(list: readonly TrendPoint[], note: string, closed: boolean): voi
     main.append(paragraph('empty', empty));
     return;
   }
-  const { xs, hours } = xValues(list);
+  const { xs, hours } = xAxis(list);
   const fg = cssVar('--vscode-foreground', '#888');
   const grid = cssVar('--vscode-editorWidget-border', cssVar('--vscode-panel-border', 'rgba(128,128,128,0.3)'));
   const hc = highContrast();
@@ -98,7 +94,8 @@ function render(list: readonly TrendPoint[], note: string, closed: boolean): voi
         ...(panel.rightLabel !== null ? [{ ...axisStyle, label: panel.rightLabel, scale: 'r', side: 1 as const, grid: { show: false } }] : []),
       ],
       series: [
-        { label: hours ? 'hour' : '#', value: (_u, v) => (v === null ? '—' : labelAt(v, xs)) },
+        // The label of the point under the cursor, by its index: two timepoints may share a time.
+        { label: hours ? 'hour' : '#', value: (_u, v, _s, idx) => labelAt(v, idx) },
         ...panel.series.map((s) => ({
           label: s.label,
           scale: s.axis === 1 ? 'r' : 'y',
@@ -167,10 +164,9 @@ function table(list: readonly TrendPoint[]): HTMLElement {
   return section;
 }
 
-function labelAt(x: number, xs: readonly number[]): string {
-  const i = xs.indexOf(x);
-  const p = i >= 0 ? points[i] : undefined;
-  return p ? p.label : String(x);
+function labelAt(x: number | null, idx: number | null): string {
+  const p = idx === null ? undefined : points[idx];
+  return p ? shownText(p.label) : x === null ? '—' : String(x);
 }
 
 function showText(className: string, text: string): void {
@@ -180,22 +176,40 @@ function showText(className: string, text: string): void {
   if (main) main.replaceChildren(paragraph(className, text));
 }
 
-window.addEventListener('message', (event: MessageEvent<ToWebview>) => {
-  const m = event.data;
-  received = true;
-  if (m.type === 'trends') {
-    lastNote = m.note;
-    lastClosed = m.closed;
-    // Kept by VS Code across a reload of the window, for the serializer to reopen this note.
-    vscode.setState({ uri: m.uri });
-    render(m.points, m.note, m.closed);
-  }
+/**
+ * The latest message not drawn yet. Messages are drawn once those that arrived meanwhile have been
+ * read, and only the last of them: drawing a long note takes a while, and a note edited at speed
+ * sends its trends again after each analysis, so the page would otherwise fall ever further behind,
+ * drawing each one in turn.
+ */
+let latest: ToWebview | null = null;
+
+function drawLatest(): void {
+  const m = latest;
+  latest = null;
+  if (!m) return;
+  if (m.type === 'trends') render(m.points, m.note, m.closed);
   if (m.type === 'error') showText('error', `Trends could not be loaded: ${m.message}`);
   if (m.type === 'notice') {
     const title = document.getElementById('title');
     if (title) title.textContent = 'Trends';
     showText('empty', m.message);
   }
+}
+
+window.addEventListener('message', (event: MessageEvent<unknown>) => {
+  // Checked before anything is drawn or kept: a message of another shape changes nothing.
+  const m = toWebview(event.data);
+  if (!m) {
+    console.warn('Pneumark trend view: a message of an unknown shape was ignored.');
+    return;
+  }
+  received = true;
+  // Kept by VS Code across a reload of the window, for the serializer to reopen this note.
+  const uri = m.type === 'error' ? undefined : m.uri;
+  if (uri !== undefined) vscode.setState({ uri });
+  if (latest === null) window.setTimeout(drawLatest, 0);
+  latest = m;
 });
 
 let resizeTimer: number | undefined;

@@ -43,6 +43,8 @@ export interface TrendsResult {
   readonly uri: string;
   readonly version: number | null;
   readonly points: readonly TrendPoint[];
+  /** Why the note has no points although it may have timepoints: it is too large to be analysed. */
+  readonly notAnalysed?: string;
 }
 
 /** The key figures of the timepoint at a line (for a status bar). */

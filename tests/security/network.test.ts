@@ -37,6 +37,11 @@ describe('bundles make no network calls', () => {
     }
   });
 
+  it('never starts the language server with an inspector port, even when the extension host is debugged', () => {
+    // (The language client's own list of debugging flags names them, without a port.)
+    expect(readFileSync('dist/extension.js', 'utf8')).not.toMatch(/--inspect(-brk)?=\d/);
+  });
+
   it('routes the protocol library’s socket transports to a stub that refuses', () => {
     const server = readFileSync('dist/server.js', 'utf8');
     expect(server).toContain('Pneumark makes no network connections');

@@ -168,6 +168,20 @@ describe('the size limit', () => {
       await sized.close();
     }
   });
+
+  it('tells the trend view why a note too large to analyse has no points, rather than giving it none as for a note without timepoints', async () => {
+    const sized = await startClient({ maxNoteSizeKb: 16 });
+    try {
+      const text = '@ day 1 08:00\nabg ph 7.30, pco2 50, po2 60\n\n'.repeat(500);
+      const uri = sized.open(path('trends-over-limit.pneu'), text);
+      await sized.diagnostics(uri);
+      const trends = await sized.connection.sendRequest<{ points: unknown[]; notAnalysed?: string }>('pneumark/trends', { uri });
+      expect(trends.points).toEqual([]);
+      expect(trends.notAnalysed).toMatch(/^Pneumark does not analyse notes over 16 KB \(this one is 0\.0 MB\)/);
+    } finally {
+      await sized.close();
+    }
+  });
 });
 
 describe('unit conversion', () => {

@@ -10,6 +10,9 @@ const { checkDocs, convertNoteUnits, findCheck, insertTimepoint, openCheckDocs, 
 
 beforeEach(() => resetFake());
 
+/** How VS Code finds links in a notification's message (a click on a `command:` one runs it). */
+const NOTIFICATION_LINK = /\[([^\]]+)\]\(((?:https?:\/\/|command:|file:)[^)\s]+)(?: (["'])(.+?)(\3))?\)/i;
+
 const NOTE = 'patient   age 60 y\n\n@ day 1 08:00  arrival\nabg       ph 7.30, pco2 50, po2 60\n';
 
 /** A server that converts `pco2 50` to kPa (the edit as the server would give it). */
@@ -112,6 +115,16 @@ describe('Insert Timepoint', () => {
     await insertTimepoint();
     expect(state.messages.pop()?.message).toBe('Open a Pneumark note (.pneu) to insert a timepoint.');
   });
+
+  it('names a read-only note whose file name looks like a link as text, never as a link that runs a command', async () => {
+    const name = '[Retry](command:workbench.action.terminal.sendSequence?%7B%22text%22%3A%22rm%22%7D)\u202Egpj.pneu';
+    const editor = openEditor(`/work/${name}`, lines.join('\n'));
+    editor.document.readOnly = true;
+    await insertTimepoint();
+    const message = state.messages.pop()?.message ?? '';
+    expect(message).not.toMatch(NOTIFICATION_LINK);
+    expect(message).toBe('[Retry]\u200b(command:workbench.action.terminal.sendSequence?%7B%22text%22%3A%22rm%22%7D)\\u{202E}gpj.pneu could not be changed: it is read-only.');
+  });
 });
 
 describe('Open Check Documentation', () => {
@@ -157,5 +170,11 @@ describe('Open Check Documentation', () => {
     await openCheckDocs(extension, 'PN999');
     expect(state.messages[0]?.message).toBe('PN999 is not a Pneumark check: showing the list of checks.');
     expect(String(state.executed[0]?.args[0])).toBe(docsUri);
+  });
+
+  it('shows a name given to it as text, never as a link', async () => {
+    state.files.set(docsUri, markdown);
+    await openCheckDocs(extension, '[PN101](command:workbench.action.quit)');
+    expect(state.messages[0]?.message).not.toMatch(NOTIFICATION_LINK);
   });
 });

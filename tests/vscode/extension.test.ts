@@ -12,8 +12,10 @@ class FakeClient {
   running = false;
   readonly notifications = new Map<string, (params: unknown) => void>();
   readonly options: Record<string, unknown>;
-  constructor(_id: string, _name: string, _server: unknown, options: Record<string, unknown>) {
+  readonly server: unknown;
+  constructor(_id: string, _name: string, server: unknown, options: Record<string, unknown>) {
     this.options = options;
+    this.server = server;
     clients.push(this);
   }
   /** The requests sent, by method and note. */
@@ -169,6 +171,15 @@ describe('activation', () => {
     state.configuration.set('pneumark.trace.server', 'verbose');
     state.events.configuration.fire({ affectsConfiguration: (s) => 'pneumark.trace.server'.startsWith(s) });
     expect(options.traceOutputChannel.logLevel).toBe(1);
+    await deactivate();
+  });
+
+  it('starts the server over stdio alone, also when the extension host is being debugged: no inspector port', async () => {
+    await activate(context() as never);
+    const server = clients[0]!.server as { run: unknown; debug: unknown };
+    expect(server.run).toEqual({ module: '/ext/dist/server.js', transport: 0 });
+    expect(server.debug).toEqual(server.run);
+    expect(JSON.stringify(server)).not.toMatch(/inspect/);
     await deactivate();
   });
 });

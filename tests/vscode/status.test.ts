@@ -141,6 +141,13 @@ describe('what the item says', () => {
     expect(statusContent({ label: '$(alert) x', text: '$(alert) x', tooltip: '' }).text).toBe('$(pulse) \\$(alert) x');
   });
 
+  it('shows characters that reorder or hide text in a label as escapes', () => {
+    const content = statusContent({ label: 'a\u202Eexe.pdf', text: 'a\u202Eexe.pdf', tooltip: 'a\u202Eexe.pdf\nPaO2 71 mmHg' });
+    expect(content.text).toBe('$(pulse) a\\u{202E}exe.pdf');
+    expect(content.accessibleName).toBe('Pneumark timepoint a\\u{202E}exe.pdf. Show trends.');
+    expect(content.tooltip.split('\n').slice(0, 2)).toEqual(['a\\u{202E}exe.pdf', 'PaO2 71 mmHg']);
+  });
+
   it('names a timepoint with no figures by its label alone', () => {
     expect(statusContent({ label: 'arrival', text: 'arrival', tooltip: 'arrival' }).accessibleName).toBe('Pneumark timepoint arrival. Show trends.');
   });

@@ -174,6 +174,26 @@ describe('the trend view', () => {
     expect(state.panels[1]!.postedOf('trends')).toHaveLength(1);
   });
 
+  it('names a note whose file name holds characters that reorder text with those characters escaped', async () => {
+    const { send } = server();
+    view = new TrendView(extensionUri, () => send, 10);
+    const editor = openEditor('/work/a\u202Eunp.pneu', '@ 08:00');
+    view.show(editor.document as never);
+    await vi.runAllTimersAsync();
+    expect(panel().title).toBe('Trends: a\\u{202E}unp.pneu');
+    expect(lastPosted()).toMatchObject({ type: 'trends', note: 'a\\u{202E}unp.pneu' });
+  });
+
+  it('says why a note too large to analyse has no trends, instead of calling it a note without timepoints', async () => {
+    const notAnalysed = 'Pneumark does not analyse notes over 2048 KB (this one is 3.1 MB): split it into smaller notes, or raise pneumark.maxNoteSizeKb.';
+    const send = async <R>(_m: string, params: unknown): Promise<R> => ({ uri: (params as TrendsParams).uri, version: 1, points: [], notAnalysed } as R);
+    view = new TrendView(extensionUri, () => send, 10);
+    const editor = openEditor('/work/big.pneu', '@ 08:00');
+    view.show(editor.document as never);
+    await vi.runAllTimersAsync();
+    expect(lastPosted()).toEqual({ type: 'notice', message: `big.pneu: ${notAnalysed}`, uri: 'file:///work/big.pneu' });
+  });
+
   it('says why it shows nothing outside a note', () => {
     view = new TrendView(extensionUri, () => null, 10);
     const editor = openEditor('/work/README.md', '# x', { languageId: 'markdown' });

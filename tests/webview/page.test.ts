@@ -2,7 +2,7 @@
 // and the extension.
 import { describe, expect, it } from 'vitest';
 import { trendPageCsp, trendPageHtml } from '../../client/src/trend-html';
-import { fromWebview, trendViewState } from '../../client/webview/messages';
+import { fromWebview, toWebview, trendViewState } from '../../client/webview/messages';
 
 const resources = { cspSource: 'https://abc.vscode-cdn.net', nonce: 'bm9uY2Ugb2YgdGhlIHBhZ2U=', script: 'https://abc.vscode-cdn.net/ext/dist/webview/trends.js', style: 'https://abc.vscode-cdn.net/ext/dist/webview/trends.css' };
 
@@ -33,11 +33,32 @@ describe('messages from the page', () => {
   it('are taken only in the shapes the extension expects', () => {
     expect(fromWebview({ type: 'ready' })).toEqual({ type: 'ready' });
     expect(fromWebview({ type: 'reveal', line: 4 })).toEqual({ type: 'reveal', line: 4 });
-    for (const bad of [null, 'ready', { type: 'reveal', line: -1 }, { type: 'reveal', line: 1.5 }, { type: 'reveal', line: '4' }, { type: 'run', command: 'x' }]) expect(fromWebview(bad)).toBeNull();
+    for (const bad of [null, 'ready', { type: 'reveal', line: -1 }, { type: 'reveal', line: 1.5 }, { type: 'reveal', line: '4' }, { type: 'reveal', line: Number.NaN }, { type: 'reveal', line: 2 ** 53 }, { type: 'run', command: 'x' }]) expect(fromWebview(bad)).toBeNull();
   });
 
   it('and so is the state restored after a reload', () => {
     expect(trendViewState({ uri: 'file:///n/a.pneu' })).toEqual({ uri: 'file:///n/a.pneu' });
     for (const bad of [undefined, null, {}, { uri: 4 }, { uri: '' }]) expect(trendViewState(bad)).toBeNull();
+  });
+});
+
+describe('messages to the page', () => {
+  const point = { timepoint: 1, label: 'first', line: 2, minutes: 480, values: { pao2: { value: 71, unit: 'mmHg' } }, carried: ['pao2'] };
+  const trends = { type: 'trends', points: [point], note: 'a.pneu', uri: 'file:///n/a.pneu', closed: false };
+
+  it('are taken only in the shapes the page draws', () => {
+    expect(toWebview(trends)).toEqual(trends);
+    expect(toWebview({ type: 'error', message: 'x' })).toEqual({ type: 'error', message: 'x' });
+    expect(toWebview({ type: 'notice', message: 'y' })).toEqual({ type: 'notice', message: 'y' });
+    expect(toWebview({ type: 'notice', message: 'y', uri: 'file:///n/a.pneu' })).toEqual({ type: 'notice', message: 'y', uri: 'file:///n/a.pneu' });
+    for (const bad of [null, 'trends', { type: 'trends' }, { ...trends, points: 'x' }, { ...trends, note: 3 }, { ...trends, points: [{ ...point, values: null }] },
+      { ...trends, points: [{ ...point, values: { pao2: { value: 1, unit: 'furlong' } } }] }, { ...trends, points: [{ ...point, carried: ['eval'] }] },
+      { ...trends, points: [{ ...point, line: -1 }] }, { type: 'error' }, { type: 'html', html: '<b>' }]) expect(toWebview(bad)).toBeNull();
+  });
+
+  it('leave out a value that arrived as null (NaN and Infinity cross as null)', () => {
+    const sent = JSON.parse(JSON.stringify({ ...trends, points: [{ ...point, values: { pao2: { value: Number.NaN, unit: 'mmHg' }, ph: { value: 7.3, unit: 'pH' } } }] })) as unknown;
+    expect(toWebview(sent)).toMatchObject({ points: [{ values: { ph: { value: 7.3, unit: 'pH' } } }] });
+    expect((toWebview(sent) as unknown as { points: { values: object }[] }).points[0]?.values).not.toHaveProperty('pao2');
   });
 });

@@ -2,7 +2,7 @@
 // the points give them (the page converts nothing). Points are written by hand here; what the
 // core gives for a note is tested in tests/core/trends.test.ts.
 import { describe, expect, it } from 'vitest';
-import { emptyMessage, legendText, panelLayouts, timepointTable } from '../../client/webview/panels';
+import { emptyMessage, legendText, panelLayouts, timepointTable, xAxis } from '../../client/webview/panels';
 import type { TrendPoint } from '../../server/src/protocol';
 
 function point(values: TrendPoint['values'], line = 0): TrendPoint {
@@ -72,5 +72,26 @@ describe('the table of values by timepoint', () => {
     const carried: TrendPoint = { ...point({ fio2: { value: 40, unit: '%' } }, 5), carried: ['fio2'] };
     const table = timepointTable([point({ pao2: { value: 80, unit: 'mmHg' } }, 1), carried]);
     expect(table.rows.map((r) => r.cells)).toEqual([['80', '—'], ['—', '40*']]);
+  });
+});
+
+describe('the x axis', () => {
+  const at = (minutes: (number | null)[]) => minutes.map((m, i): TrendPoint => ({ ...point({}, i), minutes: m }));
+
+  it('is hours since day 1 00:00 when every timepoint has a time and the times never go back; two may share one', () => {
+    expect(xAxis(at([480, 540, 540, 1500]))).toEqual({ xs: [8, 9, 9, 25], hours: true });
+  });
+
+  it('is the timepoint number when a time goes back (the chart needs its x values in order) or one is missing', () => {
+    expect(xAxis(at([600, 540, 660]))).toEqual({ xs: [1, 2, 3], hours: false });
+    expect(xAxis(at([600, null, 660]))).toEqual({ xs: [1, 2, 3], hours: false });
+    expect(xAxis([])).toEqual({ xs: [], hours: false });
+  });
+});
+
+describe('labels from the note', () => {
+  it('are shown with characters that reorder or hide text escaped', () => {
+    const table = timepointTable([{ ...point({ pao2: { value: 80, unit: 'mmHg' } }), label: 'a\u202Eexe.pdf \u2066x\u200by <b>' }]);
+    expect(table.rows[0]?.label).toBe('a\\u{202E}exe.pdf \\u{2066}x\\u{200B}y <b>');
   });
 });

@@ -1,10 +1,24 @@
+const FIRST_CHARACTER = { start: { line: 0, character: 0 }, end: { line: 0, character: 1 } };
+
+/**
+ * Whether a project file that is a symbolic link leads to a JSON file. A link to any other file
+ * (`/proc/self/environ`, `~/.aws/credentials`, a `.env`) is not read: a project checked out from
+ * elsewhere could otherwise have Pneumark quote the start of that file in a message about its
+ * JSON, in the editor and in a CI log. A link to another `.json` file (a team's shared settings) is
+ * read as usual.
+ */
+function linksToJson(path: string): boolean {
+  if (!lstatSync(path).isSymbolicLink()) return true;
+  return /\.json$/i.test(basename(realpathSync.native(path)));
+}
+
 /**
  * Finds `pneumark.config.json` upward from a note's folder and reads it (cached by path and
  * modification time). Shared by the language server (notes by URI; only `file:` notes have a
  * project file) and the CLI (notes by path).
  */
-import { readFileSync, statSync } from 'node:fs';
-import { dirname, join } from 'node:path';
+import { lstatSync, readFileSync, realpathSync, statSync } from 'node:fs';
+import { basename, dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { CONFIG_FILE_NAME, parseProjectConfig, type ParsedConfig } from '../core/config';
 
@@ -72,11 +86,13 @@ export class ProjectConfigs {
     if (known && known.mtimeMs === stat.mtimeMs && known.size === stat.size) return known.config;
     let config: ParsedConfig;
     try {
-      config = stat.size > 1024 * 1024
-        ? { settings: {}, hints: {}, problems: [{ message: `${CONFIG_FILE_NAME} is larger than 1 MB; Pneumark uses its defaults.`, range: { start: { line: 0, character: 0 }, end: { line: 0, character: 1 } } }] }
-        : parseProjectConfig(readFileSync(path, 'utf8'));
+      config = !linksToJson(path)
+        ? { settings: {}, hints: {}, problems: [{ message: `${CONFIG_FILE_NAME} is a symbolic link to a file whose name does not end in .json, so Pneumark does not read it; it uses its defaults.`, range: FIRST_CHARACTER }] }
+        : stat.size > 1024 * 1024
+          ? { settings: {}, hints: {}, problems: [{ message: `${CONFIG_FILE_NAME} is larger than 1 MB; Pneumark uses its defaults.`, range: FIRST_CHARACTER }] }
+          : parseProjectConfig(readFileSync(path, 'utf8'));
     } catch (error) {
-      config = { settings: {}, hints: {}, problems: [{ message: `${CONFIG_FILE_NAME} could not be read (${error instanceof Error ? error.message : String(error)}).`, range: { start: { line: 0, character: 0 }, end: { line: 0, character: 1 } } }] };
+      config = { settings: {}, hints: {}, problems: [{ message: `${CONFIG_FILE_NAME} could not be read (${error instanceof Error ? error.message : String(error)}).`, range: FIRST_CHARACTER }] };
     }
     this.cache.set(path, { mtimeMs: stat.mtimeMs, size: stat.size, config });
     return config;

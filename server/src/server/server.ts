@@ -254,6 +254,10 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     return state;
   }
 
+  function tooLargeMessage(text: string, maxNoteBytes: number): string {
+    return `Pneumark does not analyse notes over ${Math.round(maxNoteBytes / 1024)} KB (this one is ${(Buffer.byteLength(text, 'utf8') / 1048576).toFixed(1)} MB): split it into smaller notes, or raise pneumark.maxNoteSizeKb.`;
+  }
+
   /** The analysis of a document's current text (reusing what did not change); null when too large. */
   function resultFor(doc: TextDocument, state = stateFor(doc)): NoteResult | null {
     const text = doc.getText();
@@ -281,7 +285,7 @@ export function startServer(connection: Connection, collector: IdleCollector = n
         severity: 3,
         source: 'pneumark',
         code: 'too-large',
-        message: `Pneumark does not analyse notes over ${Math.round(state.settings.maxNoteBytes / 1024)} KB (this one is ${(Buffer.byteLength(text, 'utf8') / 1048576).toFixed(1)} MB): split it into smaller notes, or raise pneumark.maxNoteSizeKb.`,
+        message: tooLargeMessage(text, state.settings.maxNoteBytes),
       }]);
       return;
     }
@@ -504,7 +508,11 @@ export function startServer(connection: Connection, collector: IdleCollector = n
   connection.onRequest(TRENDS_REQUEST, (params: TrendsParams) => afterReading(params.uri, null, () => guard('trends', null, (p: TrendsParams): TrendsResult | null => {
     const doc = documents.get(p.uri);
     if (!doc) return null;
-    const result = resultFor(doc);
+    const state = stateFor(doc);
+    const text = doc.getText();
+    // A note too large to be analysed says so, rather than reading as a note without timepoints.
+    if (exceedsBytes(text, state.settings.maxNoteBytes)) return { uri: p.uri, version: doc.version, points: [], notAnalysed: tooLargeMessage(text, state.settings.maxNoteBytes) };
+    const result = resultFor(doc, state);
     return { uri: p.uri, version: doc.version, points: result ? trendPoints(result) : [] };
   })(params)));
 

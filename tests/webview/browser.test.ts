@@ -1,0 +1,103 @@
+// The trend view's page in headless Chromium (browser.ts): what a note can put into it (labels,
+// file names, messages) stays text, nothing breaks its content security policy, messages of
+// another shape are ignored, and it copes with an empty note, a long one, missing values, times
+// that go back and a server that stops and starts again.
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { TrendPoint } from '../../server/src/protocol';
+import { hasChromium, launch, openTrendPage, shutdown, until, type TrendPage } from './browser';
+
+function point(i: number, label: string, minutes: number | null, pao2: number | null = 70 + i): TrendPoint {
+  return { timepoint: i + 1, label, line: i * 2, minutes, values: { pao2: { value: pao2 as number, unit: 'mmHg' }, ph: { value: 7.3, unit: 'pH' } }, carried: [] };
+}
+
+const trends = (points: readonly TrendPoint[], note = 'icu.pneu') => ({ type: 'trends', points, note, uri: `file:///work/${note}`, closed: false });
+
+async function text(t: TrendPage, selector: string): Promise<string> {
+  return (await t.page.locator(selector).innerText()).trim();
+}
+
+describe.skipIf(!hasChromium)('the trend page in a browser', () => {
+  beforeAll(launch, 60_000);
+  afterAll(shutdown);
+
+  it('shows labels, file names and messages from a note as text, with reordering characters escaped', async () => {
+    const t = await openTrendPage();
+    const labels = ['<img src=x onerror=alert(1)>', '</script><script>alert(2)</script>', '${alert(3)}', 'a\u202Eexe.pdf', '"><svg onload=alert(4)>', 'x\u2066y\u200bz'];
+    await t.send(trends(labels.map((l, i) => point(i, l, i * 60)), '<b>n</b>\u202Eunp.pneu'));
+    expect(await text(t, '#title')).toBe('Trends — <b>n</b>\\u{202E}unp.pneu');
+    const shown = await t.page.locator('button.go').allInnerTexts();
+    expect(shown).toEqual(['<img src=x onerror=alert(1)>', '</script><script>alert(2)</script>', '${alert(3)}', 'a\\u{202E}exe.pdf', '"><svg onload=alert(4)>', 'x\\u{2066}y\\u{200B}z']);
+    expect(await t.page.locator('main img, main svg, main script').count()).toBe(0);
+    // The legend's label of the point under the cursor is text too.
+    const over = t.page.locator('.u-over').first();
+    const box = (await over.boundingBox())!;
+    await t.page.mouse.move(box.x + box.width * 0.6, box.y + box.height / 2);
+    expect(await t.page.locator('.u-legend').first().innerText()).toContain('a\\u{202E}exe.pdf');
+    await t.send({ type: 'error', message: '<img src=x onerror=alert(5)>' });
+    expect(await text(t, '#charts')).toBe('Trends could not be loaded: <img src=x onerror=alert(5)>');
+    await t.send({ type: 'notice', message: '<svg onload=alert(6)>' });
+    expect(await t.page.locator('main svg').count()).toBe(0);
+    expect(t.problems).toEqual([]);
+    await t.close();
+  });
+
+  it('ignores messages of another shape, keeping what it shows and the note it keeps for a reload', async () => {
+    const t = await openTrendPage();
+    await t.send(trends([point(0, 'first', 0)]));
+    for (const bad of [null, 'trends', { type: 'trends' }, { type: 'trends', points: 'x', note: 3 }, { ...trends([]), points: [{ label: 1, values: null }] },
+      { ...trends([]), uri: 'file:///other.pneu', points: [{ ...point(0, 'x', 0), values: { pao2: { value: 1, unit: 'furlong' } } }] }, { type: 'error' }, { type: 'run', command: 'x' }]) await t.send(bad);
+    expect(await t.page.locator('button.go').allInnerTexts()).toEqual(['first']);
+    expect(await t.state()).toEqual({ uri: 'file:///work/icu.pneu' });
+    expect(t.problems).toEqual([]);
+    await t.close();
+  });
+
+  it('copes with an empty note, values that are not numbers, and a server that stops and starts', async () => {
+    const t = await openTrendPage();
+    await t.send(trends([]));
+    expect(await text(t, '#charts')).toMatch(/^This note has no timepoints yet/);
+    // NaN and Infinity arrive as null: left out, as absent values are.
+    await t.send(trends([point(0, 'a', 0, Number.NaN), point(1, 'b', 60, Number.POSITIVE_INFINITY), point(2, 'c', 120)]));
+    expect(t.problems).toEqual([]);
+    const cells = await t.page.locator('section.values tbody tr').allInnerTexts();
+    expect(cells.map((c) => c.split('\t').map((s) => s.trim()))).toEqual([['a', '—', '7.30'], ['b', '—', '7.30'], ['c', '72', '7.30']]);
+    await t.send({ type: 'error', message: 'the Pneumark language server is not running (run "Pneumark: Restart Language Server")' });
+    expect(await text(t, '#charts')).toMatch(/not running/);
+    await t.send(trends([point(0, 'again', 0)]));
+    expect(await t.page.locator('button.go').allInnerTexts()).toEqual(['again']);
+    expect(t.problems).toEqual([]);
+    await t.close();
+  });
+
+  it('draws a note whose times go back by timepoint, with every point on the chart, and a click goes to the point under it', async () => {
+    const t = await openTrendPage();
+    // 10:00, 09:00 (earlier: PN308), 11:00, 11:00, 11:40.
+    const points = [600, 540, 660, 660, 700].map((m, i) => point(i, `tp ${i + 1}`, m));
+    await t.send(trends(points));
+    // The legend names the x values: timepoint numbers (`#`), not hours.
+    expect(await t.page.locator('.u-legend .u-label').first().innerText()).toBe('#');
+    const over = t.page.locator('.u-over').first();
+    const box = (await over.boundingBox())!;
+    // Timepoints 1…5 across the width: the middle is the third.
+    await t.page.mouse.click(box.x + box.width / 2, box.y + box.height / 2);
+    expect((await t.posted()).at(-1)).toEqual({ type: 'reveal', line: points[2]!.line });
+    expect(t.problems).toEqual([]);
+    await t.close();
+  });
+
+  it('draws a note of 5,000 timepoints, and only the last of the trends that came while it drew', async () => {
+    // Counts what the page draws: its title is written once per drawing.
+    const t = await openTrendPage({ initScript: `window.__drawn = []; addEventListener('DOMContentLoaded', () => new MutationObserver(() => window.__drawn.push(document.getElementById('title').textContent)).observe(document.getElementById('title'), { childList: true, characterData: true, subtree: true }));` });
+    const points = Array.from({ length: 5000 }, (_, i) => point(i, `day ${Math.floor(i / 24) + 1} ${i % 24}:00`, i * 60));
+    await t.send(trends(points, 'long.pneu'));
+    expect(await t.page.locator('section.values tbody tr').count()).toBe(5000);
+    expect(await t.page.locator('section.panel').count()).toBe(2);
+    // A note edited at speed: its trends come again after each analysis, faster than they are drawn.
+    await t.page.evaluate('window.__drawn.length = 0');
+    await t.page.evaluate(`for (let i = 1; i <= 5; i++) window.postMessage({ ...${JSON.stringify(trends(points, 'long.pneu'))}, note: 'long ' + i + '.pneu' }, '*')`);
+    await until(t.page, `document.getElementById('title').textContent === 'Trends — long 5.pneu'`);
+    expect(await t.page.evaluate('window.__drawn')).toEqual(['Trends — long 5.pneu']);
+    expect(t.problems).toEqual([]);
+    await t.close();
+  }, 60_000);
+});
