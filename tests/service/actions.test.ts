@@ -415,6 +415,11 @@ describe('action properties', () => {
     }), { numRuns: ACTION_RUNS });
   });
 
+  const isOrdinary = (v: StatedValue) => {
+    const f = fieldById(v.fieldId)!;
+    return v.value !== null && !v.unitDoubt && within(v.value, f.soft) && within(v.value, f.hard);
+  };
+
   it(`convertNoteUnits reads back to the same values within rounding, both ways (${ACTION_RUNS} generated notes)`, () => {
     fc.assert(fc.property(notes, fc.constantFrom('mmHg' as const, 'kPa' as const), (text, to) => {
       const result = checkNote(text);
@@ -431,9 +436,10 @@ describe('action properties', () => {
         const o = b[i]!;
         if (s.value === null || !s.readUnit) return;
         // A bare number in doubt is left as written: read in the new unit (the one it is ordinary in), or still in doubt.
-        // (A shorthand gas whose other pressure is not in doubt keeps its unit written, which holds for both.)
+        // (In a shorthand gas whose other pressure is unusual, both keep the unit they were read in, written.)
         const inShorthand = s.item.implied === 'shorthand' ? a.filter((v) => v.line === s.line && v.item.implied === 'shorthand') : [s];
-        if (s.unitDoubt !== null && inShorthand.every((v) => v.unitDoubt !== null)) {
+        const othersOrdinary = inShorthand.filter((v) => v.unitDoubt === null).every((v) => isOrdinary(v));
+        if (s.unitDoubt !== null && othersOrdinary) {
           expect(o.item.value?.text, `${s.fieldId} line ${o.line + 1} left as written`).toBe(s.item.value?.text);
           if (o.readUnit === s.readUnit) expect(o.unitDoubt, `${s.fieldId} line ${o.line + 1} still in doubt`).toBe(s.unitDoubt);
           else expect([o.readUnit, o.unitDoubt], `${s.fieldId} line ${o.line + 1} read in the unit it is ordinary in`).toEqual([s.unitDoubt, null]);
@@ -442,13 +448,8 @@ describe('action properties', () => {
         expect(o.value, `${s.fieldId} line ${s.line + 1}`).not.toBeNull();
         expect(Math.abs(o.value! - s.value), `${s.fieldId} ${s.value} → ${o.value} (${JSON.stringify(converted.split(/\r\n|\r|\n/)[o.line])})`).toBeLessThanOrEqual(tolerance(s));
         // Converted when ordinary for its field; a shorthand's pressures share one unit, so
-        // they are converted only when both are ordinary.
-        const isOrdinary = (v: StatedValue) => {
-          const f = fieldById(v.fieldId)!;
-          return v.value !== null && !v.unitDoubt && within(v.value, f.soft) && within(v.value, f.hard);
-        };
-        const group = s.item.implied === 'shorthand' ? a.filter((v) => v.line === s.line && v.item.implied === 'shorthand') : [s];
-        const ordinary = group.every(isOrdinary);
+        // they are converted only when both are ordinary, or the other is in doubt (and left bare).
+        const ordinary = isOrdinary(s) && othersOrdinary;
         if (ordinary) expect(o.readUnit, `${s.fieldId} line ${o.line + 1} now reads in ${to}`).toBe(to);
         else expect(o.readUnit, `${s.fieldId} line ${o.line + 1} keeps its unit`).toBe(s.readUnit);
         if (s.unitDoubt === null) expect(o.unitDoubt, `${s.fieldId} line ${o.line + 1} raises no new doubt`).toBeNull();

@@ -287,15 +287,19 @@ function valueEdits(s: StatedValue, field: FieldDef, to: GasUnit, bareAfter: Gas
  * in the other). A shorthand has one unit for its two pressures, so none is written: every pressure
  * is left bare and read in the note's new gas unit. A pressure in doubt is left as written (in the
  * new unit it is ordinary: `7.35/40/9.1/24` in mmHg has a PaO2 of 9.1 kPa), the others are converted
- * (`7.35/5.3/9.1/24` in kPa). Left as it is when converting to the unit in force, or when another
- * pressure is unusual too.
+ * (`7.35/5.3/9.1/24` in kPa). Left as it is when converting to the unit in force; when another
+ * pressure is unusual too, the numbers are kept as read with their unit written, as for any
+ * shorthand with an unusual pressure.
  */
 function shorthandWithDoubt(sh: ShorthandPressures, to: GasUnit, bareAfter: GasUnit | null, readUnit: string): TextEdit[] {
+  if (sh.parts.every((p) => p.unitDoubt)) return [];
+  // Another pressure unusual too: the numbers are kept as read, with the unit they were read in written.
+  if (sh.parts.some((p) => !p.unitDoubt && !ordinary(p, p.field))) return keepAsRead(sh.node.line, sh.end, false, readUnit, bareAfter);
   if (readUnit === to || bareAfter !== to) return [];
   const edits: TextEdit[] = [];
   for (const s of sh.parts) {
     if (s.unitDoubt) continue;
-    const number = ordinary(s, s.field) ? numberIn(s, s.field, to) : null;
+    const number = numberIn(s, s.field, to);
     if (number === null || !s.item.value) return [];
     edits.push({ range: lineRange(sh.node.line, s.item.value.span.start, s.item.value.span.end), newText: number });
   }
