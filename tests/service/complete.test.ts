@@ -72,6 +72,15 @@ describe('at the start of a line', () => {
     expect(labels('@ |')).toEqual(['day N HH:MM', 'HH:MM', '+interval']);
     expect(labels('@ 08:00 |')).toEqual([]);
   });
+
+  it('offers a clock time after `@ day N`, and nothing once the time is there', () => {
+    for (const marked of ['@ day 2 |', '@day 2 |', '@ DAY 12 |']) {
+      expect(complete(marked).map((c) => [c.label, c.insertText]), marked).toEqual([['HH:MM', '${1:HH:MM}  ${2:label}']]);
+    }
+    expect(labels('@ day 2 08:00 |')).toEqual([]);
+    expect(labels('@ day |')).toEqual([]);
+    expect(labels('@ day x |')).toEqual([]);
+  });
 });
 
 describe('keys', () => {

@@ -2,7 +2,7 @@
  * Completions from the registries, by where the cursor is on its line:
  * - at the start of a line (or in its first word): sections, `@` timepoint snippets, a gas-line
  *   and a vent-line snippet;
- * - after `@`: time snippets;
+ * - after `@`: time snippets; after `@ day N`: a clock time snippet;
  * - after a section word or a comma: the section's keys not yet used on the line (an oxygen
  *   line starts with its device; a gas line may start with a shorthand);
  * - after a key that takes a word (`mode`, `sex`, `gas`, `device`): its words;
@@ -58,7 +58,10 @@ function completionsOnLine(node: LineNode, position: Position): CompletionInfo[]
     return narrow(lineStartCompletions(restOfLine === '', lineRange(line, wordStart, wordEnd)), typed);
   }
   if (first.text.startsWith('@')) {
-    return chunks.length === 1 && first.text === '@' ? narrow(timeCompletions(lineRange(line, wordStart, wordEnd)), typed) : [];
+    if (chunks.length === 1 && first.text === '@') return narrow(timeCompletions(lineRange(line, wordStart, wordEnd)), typed);
+    // `@ day 2 |`: the clock time comes next (a day alone leaves the time unknown).
+    if (isDayWithoutTime(chunks)) return narrow([CLOCK_AFTER_DAY(lineRange(line, wordStart, wordEnd))], typed);
+    return [];
   }
   const section = sectionByName(first.text);
   if (!section || section.id === 'note') return [];
@@ -218,6 +221,14 @@ function timeCompletions(replace: Range): CompletionInfo[] {
     { label: '+interval', kind: 'snippet', detail: 'interval after the previous timepoint', insertText: '+${1:interval}', isSnippet: true, replace },
   ];
 }
+
+/** The words before the cursor are `@ day N` (or `@day N`), with no time yet. */
+function isDayWithoutTime(chunks: readonly { readonly text: string }[]): boolean {
+  const words = chunks[0]!.text === '@' ? chunks.slice(1) : [{ text: chunks[0]!.text.slice(1) }, ...chunks.slice(1)];
+  return words.length === 2 && words[0]!.text.toLowerCase() === 'day' && /^[0-9]+$/.test(words[1]!.text);
+}
+
+const CLOCK_AFTER_DAY = (replace: Range): CompletionInfo => ({ label: 'HH:MM', kind: 'snippet', detail: 'clock time on that day', insertText: '${1:HH:MM}  ${2:label}', isSnippet: true, replace });
 
 function shorthandSnippet(section: SectionId, replace: Range): CompletionInfo {
   const venous = section === 'vbg';
