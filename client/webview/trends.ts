@@ -24,6 +24,8 @@ const charts: uPlot[] = [];
 let points: readonly TrendPoint[] = [];
 let lastNote = '';
 let lastClosed = false;
+/** The address of the note shown (the table of a long note shows every row only for the note that asked). */
+let lastUri = '';
 /** Nothing has come from the extension yet: the page keeps its "waiting" line. */
 let received = false;
 
@@ -119,9 +121,20 @@ function render(list: readonly TrendPoint[], note: string, closed: boolean): voi
   main.append(table(list));
 }
 
+/**
+ * Rows of the table shown at first: a table of thousands of timepoints takes seconds to lay out at
+ * every redraw (55,000 cells for 5,000 timepoints), while the charts above show them all. A long
+ * note shows its latest timepoints, with a button that shows every one of them for that note.
+ */
+export const TABLE_ROWS = 500;
+/** The note whose table shows every row (asked for with the button), until another note is shown. */
+let allRowsFor: string | null = null;
+
 /** The values as a table, with a button per timepoint to go to it. */
 function table(list: readonly TrendPoint[]): HTMLElement {
-  const { headings, rows } = timepointTable(list);
+  const { headings, rows: allRows } = timepointTable(list);
+  const whole = allRows.length <= TABLE_ROWS || allRowsFor === lastUri;
+  const rows = whole ? allRows : allRows.slice(allRows.length - TABLE_ROWS);
   const section = document.createElement('section');
   section.className = 'values';
   section.setAttribute('aria-label', 'Values by timepoint');
@@ -160,7 +173,23 @@ function table(list: readonly TrendPoint[]): HTMLElement {
     tbody.append(tr);
   }
   t.append(caption, thead, tbody);
-  section.append(h, t);
+  section.append(h);
+  if (!whole) {
+    const more = document.createElement('p');
+    more.className = 'more';
+    more.textContent = `The latest ${TABLE_ROWS} of ${allRows.length} timepoints (the charts show them all). `;
+    const all = document.createElement('button');
+    all.type = 'button';
+    all.className = 'all-rows';
+    all.textContent = `Show all ${allRows.length}`;
+    all.addEventListener('click', () => {
+      allRowsFor = lastUri;
+      section.replaceWith(table(list));
+    });
+    more.append(all);
+    section.append(more);
+  }
+  section.append(t);
   return section;
 }
 
@@ -188,7 +217,10 @@ function drawLatest(): void {
   const m = latest;
   latest = null;
   if (!m) return;
-  if (m.type === 'trends') render(m.points, m.note, m.closed);
+  if (m.type === 'trends') {
+    lastUri = m.uri;
+    render(m.points, m.note, m.closed);
+  }
   if (m.type === 'error') showText('error', `Trends could not be loaded: ${m.message}`);
   if (m.type === 'notice') {
     const title = document.getElementById('title');

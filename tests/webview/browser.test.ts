@@ -1,6 +1,7 @@
 // The trend view's page in headless Chromium (browser.ts): what a note can put into it (labels,
 // file names, messages) stays text, nothing breaks its content security policy, messages of
-// another shape are ignored, and it copes with an empty note, a long one, missing values, times
+// another shape are ignored, and it copes with an empty note, a long one (its table shows the latest
+// 500 timepoints until asked for all), missing values, times
 // that go back and a server that stops and starts again.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { TrendPoint } from '../../server/src/protocol';
@@ -90,8 +91,20 @@ describe.skipIf(!hasChromium)('the trend page in a browser', () => {
     const t = await openTrendPage({ initScript: `window.__drawn = []; addEventListener('DOMContentLoaded', () => new MutationObserver(() => window.__drawn.push(document.getElementById('title').textContent)).observe(document.getElementById('title'), { childList: true, characterData: true, subtree: true }));` });
     const points = Array.from({ length: 5000 }, (_, i) => point(i, `day ${Math.floor(i / 24) + 1} ${i % 24}:00`, i * 60));
     await t.send(trends(points, 'long.pneu'));
-    expect(await t.page.locator('section.values tbody tr').count()).toBe(5000);
+    // The table shows the latest 500 timepoints (the charts all of them), and all on request.
+    expect(await t.page.locator('section.values tbody tr').count()).toBe(500);
+    expect(await t.page.locator('section.values tbody tr th button.go').first().innerText()).toBe(points[4500]!.label);
+    expect(await text(t, 'section.values p.more')).toBe('The latest 500 of 5000 timepoints (the charts show them all). Show all 5000');
     expect(await t.page.locator('section.panel').count()).toBe(2);
+    await t.page.locator('section.values button.all-rows').click();
+    await until(t.page, `document.querySelectorAll('section.values tbody tr').length === 5000`);
+    expect(await t.page.locator('section.values p.more').count()).toBe(0);
+    // Kept for that note when its trends come again; another note starts with the latest rows again.
+    await t.send(trends(points, 'long.pneu'));
+    expect(await t.page.locator('section.values tbody tr').count()).toBe(5000);
+    await t.send(trends(points, 'other.pneu'));
+    expect(await t.page.locator('section.values tbody tr').count()).toBe(500);
+    await t.send(trends(points, 'long.pneu'));
     // A note edited at speed: its trends come again after each analysis, faster than they are drawn.
     await t.page.evaluate('window.__drawn.length = 0');
     await t.page.evaluate(`for (let i = 1; i <= 5; i++) window.postMessage({ ...${JSON.stringify(trends(points, 'long.pneu'))}, note: 'long ' + i + '.pneu' }, '*')`);
