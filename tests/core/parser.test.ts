@@ -562,6 +562,15 @@ describe('timepoints', () => {
     expect(timepoint('@ +90m 2h').issues).toEqual([]);
   });
 
+  it('reports extra commas between a time and its label (information), as on item lines, and keeps one', () => {
+    const text = '@ 08:00,, arrival';
+    const node = timepoint(text);
+    expect(node.label?.text).toBe('arrival');
+    expect(node.issues.map((i) => [i.check, i.severity, at(text, i.span), i.fixes[0]?.edits[0]?.newText])).toEqual([['stray-text', 'information', ',', '']]);
+    expect(timepoint('@ 09:00 , , review').issues.map((i) => i.check)).toEqual(['stray-text']);
+    expect(timepoint('@ 10:00, review, then ward').issues).toEqual([]);
+  });
+
   it('reads clock times and refuses impossible ones', () => {
     expect(readClock('00:00')).toBe(0);
     expect(readClock('7:05')).toBe(425);

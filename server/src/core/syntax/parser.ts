@@ -523,6 +523,12 @@ function parseTimepoint(body: string, chunks: Word[], line: number, text: string
     }
   }
   const l0 = chunks[at + used];
+  // `@ 08:00,, arrival`: one comma may end the time; more separate nothing (information, as on item lines).
+  if (l0 && used > 0) {
+    const comma = body.indexOf(',', chunks[at + used - 1]!.end);
+    const second = comma >= 0 && comma < l0.start ? body.indexOf(',', comma + 1) : -1;
+    if (second >= 0 && second < l0.start) issues.push(strayCommaIssue(body, second, l0.start, 'doubled'));
+  }
   const labelEnd = l0 ? proseEnd(body) : 0;
   // Cut from the line when read (one object rather than a token and its text): the timeline reads it once.
   const label: Token | null = l0 ? new CutToken(body, l0.start, labelEnd) : null;
