@@ -163,11 +163,23 @@ describe('units', () => {
     expect(labels('vent fio2 0.4 |')).not.toContain('%');
     expect(labels('vent fio2 0.4 |')).toContain('peep');
     expect(labels('abg fio2 1 |')).not.toContain('%');
-    expect(labels('oxygen venturi, fio2 .28 |')).toEqual(['flow', 'ipap', 'epap', 'level']);
+    expect(labels('oxygen venturi, fio2 .28 |')).toEqual(['flow']);
     expect(labels('vent fio2 0.4%|')).toEqual([]);
     // A percentage still gets its unit.
     expect(labels('vent fio2 40 |')[0]).toBe('%');
     expect(labels('vent fio2 40%|')).toEqual(['%']);
+  });
+
+  it('offers the keys of the line\'s device: IPAP and EPAP for NIV, a level for CPAP, neither for others', () => {
+    expect(labels('oxygen niv |')).toEqual(['flow', 'fio2', 'ipap', 'epap']);
+    expect(labels('oxygen cpap 8 |')).toEqual(['cmH2O', 'mbar', 'flow', 'fio2']);
+    expect(labels('oxygen hfnc 50 |')).toEqual(['L/min', 'fio2']);
+    expect(labels('oxygen mask, |')).toEqual(['flow', 'fio2']);
+  });
+
+  it('offers a section\'s own keys first, then those it shares with other lines', () => {
+    expect(labels('vent |')).toEqual(['mode', 'vt', 'rate', 'peep', 'plateau', 'peak', 'flow', 'map', 'ps', 've', 'etco2', 'fio2']);
+    expect(labels('abg |').slice(0, 4)).toEqual(['ph', 'pco2', 'po2', 'hco3']);
   });
 
   it('offers no flow or pressure on a room-air line (room air has no device to set)', () => {
@@ -218,7 +230,7 @@ describe('while a value of several parts is typed', () => {
   it('offers nothing after the slash of a pair or a spaced shorthand gas: a number comes next', () => {
     expect(complete('abg 7.3 / 56 / |')).toEqual([]);
     expect(complete('vitals bp 120 / |')).toEqual([]);
-    expect(labels('abg 7.3 / 56 / 71 / 26 |').slice(0, 3)).toEqual(['mmHg', 'kPa', 'fio2']);
+    expect(labels('abg 7.3 / 56 / 71 / 26 |').slice(0, 3)).toEqual(['mmHg', 'kPa', 'be']);
   });
 
   it('completes a device of two words from its first word on', () => {

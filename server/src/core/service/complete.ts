@@ -7,7 +7,8 @@
  *   line starts with its device; a gas line may start with a shorthand);
  * - after a key that takes a word (`mode`, `sex`, `gas`, `device`): its words;
  * - after a key and a number (or a shorthand gas, or a device's flow): the units it takes, then
- *   the keys that may follow (a unit may be left out); on a room-air oxygen line, no flow or pressure.
+ *   the keys that may follow (a unit may be left out); on an oxygen line, the keys of its device
+ *   (no flow on room air; IPAP and EPAP for NIV, a level for CPAP).
  * Completions are narrowed to those whose label starts with the text typed before the cursor, and
  * replace the whole word under the cursor (the part after it too: `sp|2` becomes `spo2`).
  */
@@ -82,8 +83,9 @@ function completionsOnLine(node: LineNode, position: Position): CompletionInfo[]
   const replace = lineRange(line, wordStart, wordEnd);
   const lineItems = node.kind === 'section' ? node.items : [];
   const used = usedFields(section.id, lineItems, wordStart);
-  // Room air is breathing with no device: no flow or pressure to set (a flow is PN310).
-  if (section.id === 'oxygen' && onRoomAir(lineItems)) for (const id of NOT_ON_ROOM_AIR) used.add(id);
+  // The keys that go with the line's device: room air has no flow (PN310) and no pressure, and
+  // only NIV has IPAP and EPAP, only CPAP a level.
+  if (section.id === 'oxygen') for (const id of notForDevice(deviceOnLine(lineItems))) used.add(id);
   // Right after a comma (`hr 80,|`, a trigger character), a key is written after a blank, as the formatter writes it.
   const glued = wordStart > 0 && text.charCodeAt(wordStart - 1) === 0x2c;
   const keys = () => narrow(keyCompletions(section.id, used, replace), typed).map((c) => (glued ? { ...c, insertText: ` ${c.insertText}` } : c));
@@ -243,16 +245,26 @@ function shorthandSnippet(section: SectionId, replace: Range): CompletionInfo {
   };
 }
 
-/** Field ids stated on the line, except the item at the cursor (the one being typed). */
-/** Oxygen-line fields that do not go with room air: a flow (PN310) and the pressures of a device. */
-const NOT_ON_ROOM_AIR: readonly string[] = ['o2_flow', 'ipap', 'epap', 'cpap_level'];
+/** The pressures each oxygen device sets (others set none). */
+const DEVICE_PRESSURES: Readonly<Record<string, readonly string[]>> = { niv: ['ipap', 'epap'], cpap: ['cpap_level'] };
+const PRESSURES: readonly string[] = ['ipap', 'epap', 'cpap_level'];
 
-/** Whether an oxygen line's device is room air (in any of its spellings). */
-function onRoomAir(items: readonly ItemNode[]): boolean {
-  const words = fieldFor('oxygen', 'device')?.words;
-  return items.some((i) => i.keyName === 'device' && i.value?.kind === 'word' && words?.[i.value.text.toLowerCase()] === 'room air');
+/** Oxygen-line fields that do not go with a device: its pressures aside, and for room air the flow too. */
+function notForDevice(device: string | null): readonly string[] {
+  if (device === null) return [];
+  const own = DEVICE_PRESSURES[device] ?? [];
+  const others = PRESSURES.filter((id) => !own.includes(id));
+  return device === 'room air' ? ['o2_flow', ...others] : others;
 }
 
+/** The canonical device word of an oxygen line (`ra` → room air), null when none is written yet. */
+function deviceOnLine(items: readonly ItemNode[]): string | null {
+  const words = fieldFor('oxygen', 'device')?.words;
+  for (const i of items) if (i.keyName === 'device' && i.value?.kind === 'word') return words?.[i.value.text.toLowerCase()] ?? null;
+  return null;
+}
+
+/** Field ids stated on the line, except the item at the cursor (the one being typed). */
 function usedFields(section: SectionId, items: readonly ItemNode[], cursor: number): Set<string> {
   const used = new Set<string>();
   for (const item of items) {
@@ -279,9 +291,14 @@ function keyDetail(field: FieldDef): string {
   return `${field.label} · ${unitLabel(first)}`;
 }
 
+/**
+ * The keys of a section not yet used on the line: the section's own fields first (a vent line's
+ * mode and settings before the FiO2 and end-tidal CO2 it shares with other lines), each group in
+ * registry order.
+ */
 function keyCompletions(section: SectionId, used: ReadonlySet<string>, replace: Range): CompletionInfo[] {
-  return fieldsInSection(section)
-    .filter((f) => !used.has(f.id))
+  const fields = fieldsInSection(section).filter((f) => !used.has(f.id));
+  return [...fields.filter((f) => f.sections[0] === section), ...fields.filter((f) => f.sections[0] !== section)]
     .map((f) => ({ label: f.aliases[0] ?? f.id, kind: 'key' as const, detail: keyDetail(f), documentation: f.description, insertText: f.aliases[0] ?? f.id, replace }));
 }
 
