@@ -53,7 +53,36 @@ function paragraph(className: string, text: string): HTMLParagraphElement {
   return p;
 }
 
+/** The control of the page that has the keyboard focus, to put it back once the page is redrawn. */
+type FocusedControl = { readonly kind: 'row'; readonly index: number } | { readonly kind: 'all-rows' };
+
+function focusedControl(): FocusedControl | null {
+  const el = document.activeElement;
+  if (!(el instanceof HTMLButtonElement) || !document.getElementById('charts')?.contains(el)) return null;
+  if (el.classList.contains('all-rows')) return { kind: 'all-rows' };
+  const index = Number(el.dataset.index);
+  return el.classList.contains('go') && Number.isInteger(index) ? { kind: 'row', index } : null;
+}
+
+/**
+ * Focuses the control that had the focus before the page was redrawn (a redraw replaces every
+ * element): the same timepoint's button, else the nearest one before it, else the first; the
+ * "Show all" button, else the first timepoint's. Without this a redraw (a new analysis, the note
+ * closing, a theme change) would drop a keyboard user's focus to the top of the page.
+ */
+function restoreFocus(f: FocusedControl | null): void {
+  const main = document.getElementById('charts');
+  if (!f || !main) return;
+  const buttons = main.querySelectorAll<HTMLButtonElement>('button.go');
+  let target: HTMLButtonElement | null = f.kind === 'all-rows' ? main.querySelector<HTMLButtonElement>('button.all-rows') : null;
+  if (f.kind === 'row') {
+    for (const b of buttons) if (Number(b.dataset.index) <= f.index) target = b;
+  }
+  (target ?? buttons[0] ?? null)?.focus();
+}
+
 function render(list: readonly TrendPoint[], note: string, closed: boolean): void {
+  const focused = focusedControl();
   points = list;
   lastNote = note;
   lastClosed = closed;
@@ -119,6 +148,7 @@ function render(list: readonly TrendPoint[], note: string, closed: boolean): voi
     charts.push(chart);
   }
   main.append(table(list));
+  restoreFocus(focused);
 }
 
 /**
@@ -153,7 +183,8 @@ function table(list: readonly TrendPoint[]): HTMLElement {
   const thead = document.createElement('thead');
   thead.append(head);
   const tbody = document.createElement('tbody');
-  for (const row of rows) {
+  const first = allRows.length - rows.length;
+  rows.forEach((row, i) => {
     const tr = document.createElement('tr');
     const th = document.createElement('th');
     th.scope = 'row';
@@ -162,6 +193,7 @@ function table(list: readonly TrendPoint[]): HTMLElement {
     button.className = 'go';
     button.textContent = row.label;
     button.title = `Go to line ${row.line + 1}`;
+    button.dataset.index = String(first + i);
     button.addEventListener('click', () => reveal(row.line));
     th.append(button);
     tr.append(th);
@@ -171,7 +203,7 @@ function table(list: readonly TrendPoint[]): HTMLElement {
       tr.append(td);
     }
     tbody.append(tr);
-  }
+  });
   t.append(caption, thead, tbody);
   section.append(h);
   if (!whole) {
@@ -181,10 +213,13 @@ function table(list: readonly TrendPoint[]): HTMLElement {
     const all = document.createElement('button');
     all.type = 'button';
     all.className = 'all-rows';
-    all.textContent = `Show all ${allRows.length}`;
+    all.textContent = `Show all ${allRows.length} timepoints`;
     all.addEventListener('click', () => {
       allRowsFor = lastUri;
-      section.replaceWith(table(list));
+      const whole = table(list);
+      section.replaceWith(whole);
+      // The button is gone with the section it was in: the focus goes to the first timepoint.
+      whole.querySelector<HTMLButtonElement>('button.go')?.focus();
     });
     more.append(all);
     section.append(more);

@@ -94,7 +94,7 @@ describe.skipIf(!hasChromium)('the trend page in a browser', () => {
     // The table shows the latest 500 timepoints (the charts all of them), and all on request.
     expect(await t.page.locator('section.values tbody tr').count()).toBe(500);
     expect(await t.page.locator('section.values tbody tr th button.go').first().innerText()).toBe(points[4500]!.label);
-    expect(await text(t, 'section.values p.more')).toBe('The latest 500 of 5000 timepoints (the charts show them all). Show all 5000');
+    expect(await text(t, 'section.values p.more')).toBe('The latest 500 of 5000 timepoints (the charts show them all). Show all 5000 timepoints');
     expect(await t.page.locator('section.panel').count()).toBe(2);
     await t.page.locator('section.values button.all-rows').click();
     await until(t.page, `document.querySelectorAll('section.values tbody tr').length === 5000`);
@@ -110,6 +110,43 @@ describe.skipIf(!hasChromium)('the trend page in a browser', () => {
     await t.page.evaluate(`for (let i = 1; i <= 5; i++) window.postMessage({ ...${JSON.stringify(trends(points, 'long.pneu'))}, note: 'long ' + i + '.pneu' }, '*')`);
     await until(t.page, `document.getElementById('title').textContent === 'Trends — long 5.pneu'`);
     expect(await t.page.evaluate('window.__drawn')).toEqual(['Trends — long 5.pneu']);
+    expect(t.problems).toEqual([]);
+    await t.close();
+  }, 60_000);
+
+  it('keeps the keyboard focus on its timepoint when the page is redrawn, and moves it to the first row when all rows are shown', async () => {
+    const t = await openTrendPage();
+    const points = Array.from({ length: 4 }, (_, i) => point(i, `tp ${i + 1}`, i * 60));
+    await t.send(trends(points));
+    const focused = () => t.page.evaluate('document.activeElement?.textContent') as Promise<string | null>;
+    await t.page.keyboard.press('Tab');
+    await t.page.keyboard.press('Tab');
+    await t.page.keyboard.press('Tab');
+    expect(await focused()).toBe('tp 3');
+    // A new analysis of the note, the note closing, a theme change: each redraws the page.
+    await t.send(trends(points));
+    expect(await focused()).toBe('tp 3');
+    await t.send({ ...trends(points), closed: true });
+    expect(await focused()).toBe('tp 3');
+    await t.page.evaluate(`window.__was = document.activeElement; document.body.classList.add('vscode-light')`);
+    await until(t.page, `document.activeElement !== window.__was`);
+    expect(await focused()).toBe('tp 3');
+    // A timepoint removed: the focus goes to the one before where it was.
+    await t.send(trends(points.slice(0, 2)));
+    expect(await focused()).toBe('tp 2');
+    await t.page.keyboard.press('Enter');
+    expect((await t.posted()).at(-1)).toEqual({ type: 'reveal', line: points[1]!.line });
+    // A long note: the "Show all" button keeps the focus across a redraw, and once pressed (with
+    // the keyboard) hands it to the first timepoint of the whole table, not to the top of the page.
+    const long = Array.from({ length: 700 }, (_, i) => point(i, `tp ${i + 1}`, i * 60));
+    await t.send(trends(long, 'long.pneu'));
+    const all = t.page.getByRole('button', { name: 'Show all 700 timepoints' });
+    await all.focus();
+    await t.send(trends(long, 'long.pneu'));
+    expect(await focused()).toBe('Show all 700 timepoints');
+    await t.page.keyboard.press('Space');
+    await until(t.page, `document.querySelectorAll('section.values tbody tr').length === 700`);
+    expect(await focused()).toBe('tp 1');
     expect(t.problems).toEqual([]);
     await t.close();
   }, 60_000);
