@@ -42,7 +42,8 @@ export function trendPageHtml(r: TrendPageResources): string {
 </head>
 <body>
 <header><h1 id="title">Trends</h1><p class="caution">Decision support only — defer to local protocols and licensed practice.</p></header>
-<main id="charts" aria-live="polite"><p class="empty">Waiting for the note's analysis…</p></main>
+<main id="charts"><p class="empty">Waiting for the note's analysis…</p></main>
+<p id="announce" class="visually-hidden" role="status"></p>
 <script nonce="${attribute(r.nonce)}" src="${attribute(r.script)}"></script>
 </body>
 </html>`;

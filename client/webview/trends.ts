@@ -81,6 +81,21 @@ function restoreFocus(f: FocusedControl | null): void {
   (target ?? buttons[0] ?? null)?.focus();
 }
 
+/** What the status line last said (it speaks only when that changes). */
+let announced = '';
+
+/**
+ * Says what the page now shows, through its status line (a polite live region), once: the page is
+ * redrawn after every analysis of the note, and a live region around the charts and the table
+ * would read all of them out at each keystroke. The same words again say nothing.
+ */
+function announce(text: string): void {
+  if (text === announced) return;
+  announced = text;
+  const status = document.getElementById('announce');
+  if (status) status.textContent = text;
+}
+
 function render(list: readonly TrendPoint[], note: string, closed: boolean): void {
   const focused = focusedControl();
   points = list;
@@ -94,10 +109,13 @@ function render(list: readonly TrendPoint[], note: string, closed: boolean): voi
   main.replaceChildren();
   if (closed) main.append(paragraph('notice', 'This note is closed: these are its trends as they were when it closed. Go to a timepoint to open it again.'));
   const empty = emptyMessage(list);
+  const shown = `Trends of ${shownText(note)}${closed ? ', as they were when the note closed' : ''}`;
   if (empty !== null) {
     main.append(paragraph('empty', empty));
+    announce(`${shown}: ${empty}`);
     return;
   }
+  announce(`${shown}.`);
   const { xs, hours } = xAxis(list);
   const fg = cssVar('--vscode-foreground', '#888');
   const grid = cssVar('--vscode-editorWidget-border', cssVar('--vscode-panel-border', 'rgba(128,128,128,0.3)'));
@@ -139,6 +157,10 @@ function render(list: readonly TrendPoint[], note: string, closed: boolean): voi
       ],
     };
     const chart = new uPlot(opts, data, section);
+    // The chart is a picture, and its legend a table of the values under the mouse: hidden from
+    // screen readers, which are told where the same values are.
+    chart.root.setAttribute('aria-hidden', 'true');
+    section.append(paragraph('visually-hidden', `${chartedText(panel.series.map((s) => s.label))} by ${hours ? 'hour' : 'timepoint'}: a chart, its values in the table "Values by timepoint" below.`));
     chart.over.addEventListener('click', () => {
       const idx = chart.cursor.idx;
       if (idx === null || idx === undefined) return;
@@ -228,6 +250,11 @@ function table(list: readonly TrendPoint[]): HTMLElement {
   return section;
 }
 
+/** `PaO2`, `PaO2 and P/F`, `PEEP, ΔP and Cstat`. */
+function chartedText(labels: readonly string[]): string {
+  return labels.length <= 1 ? labels.join('') : `${labels.slice(0, -1).join(', ')} and ${labels[labels.length - 1]!}`;
+}
+
 function labelAt(x: number | null, idx: number | null): string {
   const p = idx === null ? undefined : points[idx];
   return p ? shownText(p.label) : x === null ? '—' : String(x);
@@ -256,11 +283,15 @@ function drawLatest(): void {
     lastUri = m.uri;
     render(m.points, m.note, m.closed);
   }
-  if (m.type === 'error') showText('error', `Trends could not be loaded: ${m.message}`);
+  if (m.type === 'error') {
+    showText('error', `Trends could not be loaded: ${m.message}`);
+    announce(`Trends could not be loaded: ${m.message}`);
+  }
   if (m.type === 'notice') {
     const title = document.getElementById('title');
     if (title) title.textContent = 'Trends';
     showText('empty', m.message);
+    announce(m.message);
   }
 }
 

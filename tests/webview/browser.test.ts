@@ -2,7 +2,7 @@
 // file names, messages) stays text, nothing breaks its content security policy, messages of
 // another shape are ignored, and it copes with an empty note, a long one (its table shows the latest
 // 500 timepoints until asked for all), missing values, times
-// that go back and a server that stops and starts again.
+// that go back and a server that stops and starts again; a redraw leaves the keyboard focus where it was.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { TrendPoint } from '../../server/src/protocol';
 import { hasChromium, launch, openTrendPage, shutdown, until, type TrendPage } from './browser';
@@ -150,4 +150,41 @@ describe.skipIf(!hasChromium)('the trend page in a browser', () => {
     expect(t.problems).toEqual([]);
     await t.close();
   }, 60_000);
+
+  it('gives screen readers the table for the charts, and says what it shows once, not at every analysis', async () => {
+    // Records what the status line says: each change of its text is read out.
+    const t = await openTrendPage({ initScript: `window.__said = []; addEventListener('DOMContentLoaded', () => new MutationObserver(() => window.__said.push(document.getElementById('announce').textContent)).observe(document.getElementById('announce'), { childList: true, characterData: true, subtree: true }));` });
+    const points = Array.from({ length: 3 }, (_, i) => point(i, `tp ${i + 1}`, i * 60));
+    await t.send(trends(points));
+    const main = await t.page.locator('main').ariaSnapshot();
+    // Each chart is out of the accessibility tree (its canvas and the legend's table of the values
+    // under the mouse), its region named, with a heading and a pointer to the table.
+    expect(main).toContain('- region "Oxygenation (mmHg)":\n    - heading "Oxygenation" [level=2]\n    - paragraph: "PaO2 by hour: a chart, its values in the table \\"Values by timepoint\\" below."');
+    expect(await t.page.getByRole('table').count()).toBe(1);
+    expect(await t.page.locator('.uplot').first().getAttribute('aria-hidden')).toBe('true');
+    const table = t.page.getByRole('table', { name: /moves the editor/ });
+    expect(await table.getByRole('columnheader').allInnerTexts()).toEqual(['Timepoint', 'PaO2 (mmHg)', 'pH']);
+    expect(await table.getByRole('rowheader').allInnerTexts()).toEqual(['tp 1', 'tp 2', 'tp 3']);
+    expect(await table.getByRole('button', { name: 'tp 2' }).getAttribute('title')).toBe('Go to line 3');
+    // Nothing around the charts and the table is a live region; the status line speaks politely.
+    expect(await t.page.locator('[aria-live]').count()).toBe(0);
+    expect(await t.page.getByRole('status').count()).toBe(1);
+    // A note edited: its trends come after each analysis, redrawn each time, said once.
+    for (let i = 0; i < 4; i++) await t.send(trends(points.map((p) => ({ ...p, values: { ...p.values, pao2: { value: 80 + i, unit: 'mmHg' } } }))));
+    await t.send({ ...trends(points), closed: true });
+    await t.send(trends([]));
+    await t.send(trends([]));
+    await t.send({ type: 'error', message: 'the server stopped' });
+    await t.send({ type: 'error', message: 'the server stopped' });
+    await t.send(trends(points, 'other.pneu'));
+    expect(await t.page.evaluate('window.__said')).toEqual([
+      'Trends of icu.pneu.',
+      'Trends of icu.pneu, as they were when the note closed.',
+      'Trends of icu.pneu: This note has no timepoints yet: add one with a line such as "@ day 1 08:00".',
+      'Trends could not be loaded: the server stopped',
+      'Trends of other.pneu.',
+    ]);
+    expect(t.problems).toEqual([]);
+    await t.close();
+  });
 });
