@@ -68,6 +68,18 @@ export const PANELS: readonly PanelSpec[] = [
   ] },
 ];
 
+/**
+ * How the series of a panel are told apart besides their colours (two theme colours may look alike,
+ * to a reader or on a theme): the first is drawn solid, the second dashed, the third dotted, and
+ * the legend's sample of each line likewise. `segments`: the canvas's dash pattern for a line
+ * `width` pixels wide (empty: solid); `border`: the CSS border style of the legend's sample.
+ */
+export function seriesDash(position: number, width: number): { segments: number[]; border: 'solid' | 'dashed' | 'dotted' } {
+  if (position % 3 === 1) return { segments: [4 * width, 2 * width], border: 'dashed' };
+  if (position % 3 === 2) return { segments: [width, 1.5 * width], border: 'dotted' };
+  return { segments: [], border: 'solid' };
+}
+
 /** A series with values, and the unit they are in. */
 export interface PlottedSeries extends SeriesSpec {
   readonly unit: TrendUnit;

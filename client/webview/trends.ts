@@ -10,7 +10,7 @@
 import uPlot from 'uplot';
 import type { TrendPoint } from '../../server/src/protocol';
 import { toWebview, type FromWebview, type ToWebview, type TrendViewState } from './messages';
-import { emptyMessage, legendText, panelLayouts, shownText, timepointTable, xAxis } from './panels';
+import { emptyMessage, legendText, panelLayouts, seriesDash, shownText, timepointTable, xAxis } from './panels';
 
 interface VsCodeApi {
   postMessage(message: FromWebview): void;
@@ -29,9 +29,12 @@ let lastUri = '';
 /** Nothing has come from the extension yet: the page keeps its "waiting" line. */
 let received = false;
 
-function themeColour(name: string, fallback: string): string {
+/** VS Code's own chart colours (dark themes), for a theme that sets none: each series its own. */
+const CHART_COLOURS: Readonly<Record<string, string>> = { blue: '#3794ff', purple: '#b180d7', orange: '#d18616', green: '#89d185', red: '#f14c4c', yellow: '#cca700' };
+
+function themeColour(name: string): string {
   const value = getComputedStyle(document.body).getPropertyValue(`--vscode-charts-${name}`).trim();
-  return value || fallback;
+  return value || (CHART_COLOURS[name] ?? '#3794ff');
 }
 
 function cssVar(name: string, fallback: string): string {
@@ -130,12 +133,14 @@ function render(list: readonly TrendPoint[], note: string, closed: boolean): voi
     section.append(h);
     main.append(section);
     const data: uPlot.AlignedData = [xs, ...panel.columns];
+    const lineWidth = hc ? 3 : 2;
     const axisStyle = { stroke: fg, grid: { stroke: grid, width: 1 }, ticks: { stroke: grid, width: 1 } };
     const opts: uPlot.Options = {
       width,
       height: 170,
       cursor: { points: { size: hc ? 10 : 7 } },
-      legend: { live: true },
+      // The legend's marker of each series: a sample of its line, dashed or dotted as it is.
+      legend: { live: true, markers: { width: lineWidth, dash: (_u, i) => (i > 0 ? seriesDash(i - 1, lineWidth).border : 'solid') } },
       scales: { x: { time: false }, y: {}, ...(panel.rightLabel !== null ? { r: {} } : {}) },
       axes: [
         { ...axisStyle, label: hours ? 'hours since day 1 00:00' : 'timepoint' },
@@ -145,13 +150,14 @@ function render(list: readonly TrendPoint[], note: string, closed: boolean): voi
       series: [
         // The label of the point under the cursor, by its index: two timepoints may share a time.
         { label: hours ? 'hour' : '#', value: (_u, v, _s, idx) => labelAt(v, idx) },
-        ...panel.series.map((s) => ({
+        ...panel.series.map((s, position) => ({
           label: s.label,
           scale: s.axis === 1 ? 'r' : 'y',
-          stroke: themeColour(s.colour, '#3794ff'),
-          width: hc ? 3 : 2,
+          stroke: themeColour(s.colour),
+          width: lineWidth,
+          dash: seriesDash(position, lineWidth).segments,
           spanGaps: true,
-          points: { show: true, size: hc ? 8 : 5, fill: themeColour(s.colour, '#3794ff') },
+          points: { show: true, size: hc ? 8 : 5, fill: themeColour(s.colour) },
           value: (_u: uPlot, v: number | null) => legendText(v, s.unit),
         })),
       ],

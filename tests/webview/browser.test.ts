@@ -187,4 +187,19 @@ describe.skipIf(!hasChromium)('the trend page in a browser', () => {
     expect(t.problems).toEqual([]);
     await t.close();
   });
+
+  it('tells the series of a chart apart by their lines, dashed or dotted, and draws them thicker in a high-contrast theme', async () => {
+    const t = await openTrendPage();
+    const vent = (i: number): TrendPoint => ({ timepoint: i + 1, label: `tp ${i + 1}`, line: i, minutes: i * 60, carried: [],
+      values: { peep: { value: 8, unit: 'cmH2O' }, driving_pressure: { value: 14 + i, unit: 'cmH2O' }, compliance_static: { value: 30 - i, unit: 'mL/cmH2O' } } });
+    await t.send(trends([vent(0), vent(1), vent(2)]));
+    const markers = `[...document.querySelectorAll('section.panel .u-legend .u-series')].slice(1).map((row) => { const m = getComputedStyle(row.querySelector('.u-marker')); return row.querySelector('.u-label').textContent + ' ' + m.borderTopStyle + ' ' + m.borderTopWidth + ' ' + m.borderBottomWidth; })`;
+    // The legend's sample of each line: PEEP solid, ΔP dashed, Cstat dotted (only its top border drawn).
+    expect(await t.page.evaluate(markers)).toEqual(['PEEP solid 2px 0px', 'ΔP dashed 2px 0px', 'Cstat dotted 2px 0px']);
+    await t.page.evaluate(`window.__was = document.querySelector('.uplot'); document.body.classList.add('vscode-high-contrast')`);
+    await until(t.page, `document.querySelector('.uplot') !== window.__was`);
+    expect(await t.page.evaluate(markers)).toEqual(['PEEP solid 3px 0px', 'ΔP dashed 3px 0px', 'Cstat dotted 3px 0px']);
+    expect(t.problems).toEqual([]);
+    await t.close();
+  });
 });

@@ -2,7 +2,7 @@
 // the points give them (the page converts nothing). Points are written by hand here; what the
 // core gives for a note is tested in tests/core/trends.test.ts.
 import { describe, expect, it } from 'vitest';
-import { emptyMessage, legendText, panelLayouts, timepointTable, xAxis } from '../../client/webview/panels';
+import { emptyMessage, legendText, PANELS, panelLayouts, seriesDash, timepointTable, xAxis } from '../../client/webview/panels';
 import type { TrendPoint } from '../../server/src/protocol';
 
 function point(values: TrendPoint['values'], line = 0): TrendPoint {
@@ -43,6 +43,15 @@ describe('trend panels', () => {
     expect(legendText(0.28 * 100, '%')).toBe('28 %');
     expect(legendText(211.6, 'mmHg')).toBe('211.6 mmHg');
     expect(legendText(null, 'kPa')).toBe('—');
+  });
+});
+
+describe('series told apart without their colours', () => {
+  it('draws the series of a panel solid, dashed and dotted, the dashes growing with the line (thicker in high contrast)', () => {
+    expect([0, 1, 2].map((i) => seriesDash(i, 2))).toEqual([{ segments: [], border: 'solid' }, { segments: [8, 4], border: 'dashed' }, { segments: [2, 3], border: 'dotted' }]);
+    expect(seriesDash(1, 3).segments).toEqual([12, 6]);
+    // No panel has more series than there are kinds of line.
+    expect(Math.max(...PANELS.map((p) => p.series.length))).toBeLessThanOrEqual(3);
   });
 });
 
