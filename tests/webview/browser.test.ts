@@ -202,4 +202,26 @@ describe.skipIf(!hasChromium)('the trend page in a browser', () => {
     expect(t.problems).toEqual([]);
     await t.close();
   });
+
+  it('writes its secondary text in the theme\'s description colour, readable on a light theme', async () => {
+    // The colours VS Code's default light theme sets.
+    const t = await openTrendPage({ initScript: `addEventListener('DOMContentLoaded', () => { document.documentElement.style.cssText = '--vscode-foreground: #616161; --vscode-descriptionForeground: #717171; --vscode-editor-background: #ffffff'; document.body.className = 'vscode-light'; });` });
+    const luminance = (rgb: string) => {
+      const [r, g, b] = rgb.match(/\d+/g)!.slice(0, 3).map((c) => { const v = Number(c) / 255; return v <= 0.03928 ? v / 12.92 : ((v + 0.055) / 1.055) ** 2.4; });
+      return 0.2126 * r! + 0.7152 * g! + 0.0722 * b!;
+    };
+    const looks = (selector: string) => t.page.evaluate(`(() => { const s = getComputedStyle(document.querySelector(${JSON.stringify(selector)})); return { color: s.color, opacity: s.opacity }; })()`) as Promise<{ color: string; opacity: string }>;
+    await t.send(trends([]));
+    const long = Array.from({ length: 501 }, (_, i) => point(i, `tp ${i + 1}`, i * 60));
+    const seen = [await looks('p.empty')];
+    await t.send(trends(long));
+    for (const selector of ['p.caution', 'section.values caption', 'section.values p.more']) seen.push(await looks(selector));
+    for (const { color, opacity } of seen) {
+      expect(opacity).toBe('1');
+      // WCAG AA for text of normal size: 4.5 to 1 against the white background.
+      expect((1.05) / (luminance(color) + 0.05)).toBeGreaterThanOrEqual(4.5);
+    }
+    expect(t.problems).toEqual([]);
+    await t.close();
+  });
 });
