@@ -20,12 +20,20 @@ export function statusContent(raw: SummaryResult): { text: string; tooltip: stri
   const summary = { label: shownName(raw.label), text: shownName(raw.text), tooltip: raw.tooltip.split('\n').map(shownName).join('\n') };
   // `$(name)` in it must not turn into an icon.
   const text = `$(pulse) ${summary.text.replace(/\$\(/g, '\\$(')}`;
-  const figures = summary.text.split(' · ').join(', ');
+  const figures = summary.text.split(' · ').map(spokenFigure).join(', ');
   const accessibleName = summary.text === summary.label
     ? `Pneumark timepoint ${summary.label}. Show trends.`
     : `Pneumark timepoint ${summary.label}: ${figures}. Show trends.`;
   const tooltip = `${summary.tooltip}\n\nClick to show the trends of this note.`;
   return { text, tooltip, accessibleName };
+}
+
+/**
+ * A figure of the item as a screen reader should say it: the driving pressure by its name (`ΔP`
+ * is read as "delta P"), and the mmHg of a P/F shown in kPa with its unit (`P/F 19.6 kPa (147)`).
+ */
+function spokenFigure(figure: string): string {
+  return figure.replace(/^ΔP /, 'driving pressure ').replace(/^(P\/F [\d.]+ kPa) \(([\d.]+)\)$/, '$1 ($2 mmHg)');
 }
 
 export class TimepointStatus implements vscode.Disposable {

@@ -148,6 +148,12 @@ describe('what the item says', () => {
     expect(content.tooltip.split('\n').slice(0, 2)).toEqual(['a\\u{202E}exe.pdf', 'PaO2 71 mmHg']);
   });
 
+  it('says the driving pressure by its name and the mmHg of a P/F in kPa with its unit, to a screen reader', () => {
+    const content = statusContent({ label: 'day 2 08:00', text: 'P/F 19.6 kPa (147) · pH 7.31 · ΔP 14 cmH2O', tooltip: '' });
+    expect(content.text).toBe('$(pulse) P/F 19.6 kPa (147) · pH 7.31 · ΔP 14 cmH2O');
+    expect(content.accessibleName).toBe('Pneumark timepoint day 2 08:00: P/F 19.6 kPa (147 mmHg), pH 7.31, driving pressure 14 cmH2O. Show trends.');
+  });
+
   it('names a timepoint with no figures by its label alone', () => {
     expect(statusContent({ label: 'arrival', text: 'arrival', tooltip: 'arrival' }).accessibleName).toBe('Pneumark timepoint arrival. Show trends.');
   });
