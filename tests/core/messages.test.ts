@@ -16,6 +16,7 @@ describe('a number in a message carries its unit', () => {
     expect(messages('abg pco2 5 mmHg', 'PN302')).toEqual(['PaCO2 5 mmHg is unusual (usually 15 mmHg to 150 mmHg): check the unit and the transcription.']);
     // pH has no unit, and none is made up for it.
     expect(messages('abg ph 8.4', 'PN301')).toEqual(['pH (arterial) 8.4 is impossible (expected 6.30 to 8.00); it is not used in calculations.']);
+    expect(messages('abg ph 6.5', 'PN302')).toEqual(['pH (arterial) 6.5 is unusual (usually 6.80 to 7.80): check the transcription.']);
   });
 
   it('ventilator pressures out of order name both pressures in cmH2O', () => {

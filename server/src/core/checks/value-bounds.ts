@@ -174,7 +174,8 @@ export const unusualValue = defineCheck({
     if (!outOfBounds(stated, soft)) return;
     ctx.report({
       range: toRange(stated.line, stated.item.value?.span ?? stated.item.span),
-      message: `${asWritten(field, stated)} is unusual (usually ${describe(soft ?? {}, field, stated)}): check the unit and the transcription.`,
+      // pH has no unit to check.
+      message: `${asWritten(field, stated)} is unusual (usually ${describe(soft ?? {}, field, stated)}): check ${unitSuffix(field, stated) ? 'the unit and ' : ''}the transcription.`,
     });
   }),
 });
