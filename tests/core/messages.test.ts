@@ -54,7 +54,7 @@ describe('gas pressures in a note read in kPa', () => {
   it('are given in kPa first, with mmHg beside them', () => {
     const kpa = 'units gas kPa\n@ 08:00\noxygen room air';
     expect(messages(`${kpa}\nabg ph 7.40, pco2 5.3, po2 21.3`, 'PN401')).toEqual([
-      'PaO2 21.3 kPa (160 mmHg) is above the alveolar PO2 of 13.3 kPa (100 mmHg) that FiO2 0.21 allows here: check the FiO2, the unit, and whether the sample was venous or had an air bubble.',
+      'PaO2 21.3 kPa (160 mmHg) is above the alveolar PO2 of 13.3 kPa (100 mmHg) that FiO2 0.21 allows here: check the FiO2, the unit, and whether the sample had an air bubble.',
     ]);
     expect(messages(`${kpa}\nabg ph 7.40, pco2 5.3, po2 12, hco3 15`, 'PN402')).toEqual([
       'HCO3 15.0 mmol/L does not fit pH 7.40 and PaCO2 5.3 kPa (40 mmHg), which give 24.4 mmol/L: a transcription error, or values from different samples?',
