@@ -137,6 +137,12 @@ describe('pneumark show', async () => {
     expect(text).toContain('plateau 3 kPa (not used)');
   });
 
+  it('marks a carried value that is not used as it is marked on its own line', async () => {
+    const out = io('@ 08:00\noxygen mask, fio2 4\n@ 09:00\nvitals hr 80\n');
+    await run(['show', '-'], out);
+    expect(out.out()).toContain('carried  device mask · FiO2 0.04 (not used) (carried from 08:00, line 2)');
+  });
+
   it('prints derived values, what is missing, and readings under each timepoint', async () => {
     const out = io();
     await run(['show', 'samples/icu-ventilated-lung-injury.pneu'], out);

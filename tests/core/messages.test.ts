@@ -16,6 +16,7 @@ describe('a number in a message carries its unit', () => {
     expect(messages('abg pco2 5 mmHg', 'PN302')).toEqual(['PaCO2 5 mmHg is unusual (usually 15 mmHg to 150 mmHg): check the unit and the transcription.']);
     // pH has no unit, and none is made up for it.
     expect(messages('abg ph 8.4', 'PN301')).toEqual(['pH (arterial) 8.4 is impossible (expected 6.30 to 8.00); it is not used in calculations.']);
+    expect(messages('abg ph 6.5', 'PN302')).toEqual(['pH (arterial) 6.5 is unusual (usually 6.80 to 7.80): check the transcription.']);
   });
 
   it('ventilator pressures out of order name both pressures in cmH2O', () => {
@@ -53,7 +54,7 @@ describe('gas pressures in a note read in kPa', () => {
   it('are given in kPa first, with mmHg beside them', () => {
     const kpa = 'units gas kPa\n@ 08:00\noxygen room air';
     expect(messages(`${kpa}\nabg ph 7.40, pco2 5.3, po2 21.3`, 'PN401')).toEqual([
-      'PaO2 21.3 kPa (160 mmHg) is above the alveolar PO2 of 13.3 kPa (100 mmHg) that FiO2 0.21 allows here: check the FiO2, the unit, and whether the sample was venous or had an air bubble.',
+      'PaO2 21.3 kPa (160 mmHg) is above the alveolar PO2 of 13.3 kPa (100 mmHg) that FiO2 0.21 allows here: check the FiO2, the unit, and whether the sample had an air bubble.',
     ]);
     expect(messages(`${kpa}\nabg ph 7.40, pco2 5.3, po2 12, hco3 15`, 'PN402')).toEqual([
       'HCO3 15.0 mmol/L does not fit pH 7.40 and PaCO2 5.3 kPa (40 mmHg), which give 24.4 mmol/L: a transcription error, or values from different samples?',

@@ -281,6 +281,8 @@ describe('values stated twice at one timepoint (PN206)', () => {
       'Oxygen flow is stated twice at this timepoint; the later value is used.',
     ]);
     expect(pn206('@ 08:00\nabg 7.30/50/60\nabg po2 64').map((f) => f.message)).toEqual(['PaO2 is stated twice at this timepoint; the later value is used.']);
+    // A later value that is not used itself replaces the first all the same: neither is used, and the message does not say the later one is.
+    expect(pn206('@ 08:00\nabg ph 7.30\nabg ph 6.29').map((f) => f.message)).toEqual(['pH (arterial) is stated twice at this timepoint; the later value replaces the first, but is not used itself (see its finding).']);
   });
 
   it('stays linear on a block that repeats one field many thousand times', () => {

@@ -50,7 +50,7 @@ describe('hypercapnia without hypoxaemia (hypoxaemia PaO2 < 60, hypercapnia PaCO
   it('on air, reads hypercapnia without hypoxaemia as ventilatory failure short of the type 2 definition, never as no failure', () => {
     // Type 2 failure: hypoxaemia (PaO2 < 60 mmHg) with hypercapnia (PaCO2 > 50 mmHg) (common practice, no source).
     const r = readings('@ 08:00\noxygen room air\nabg 7.33/52/70/27');
-    expect(r['respiratory-failure']).toBe('Hypercapnia (PaCO2 52 mmHg, above 50 mmHg) without hypoxaemia on air (PaO2 70 mmHg, not below 60 mmHg): consistent with ventilatory (hypercapnic) failure; the type 2 respiratory failure read here also needs hypoxaemia.');
+    expect(r['respiratory-failure']).toBe('Hypercapnia (PaCO2 52 mmHg, above 50 mmHg) without hypoxaemia on air (PaO2 70 mmHg, not below 60 mmHg): consistent with ventilatory (hypercapnic) failure; type 2 respiratory failure, as Pneumark reads it, also needs hypoxaemia.');
     expect(r['respiratory-failure']).not.toMatch(/not consistent/);
   });
 });

@@ -87,6 +87,12 @@ describe('inputs and where they came from', () => {
     expect(gas.missing.find((m) => m.id === 'aa_gradient')?.message).toBe('add po2, fio2 (or an oxygen line) and pco2 to get A–a');
   });
 
+  it('names a value whose short name ends in a sign without the sign', () => {
+    // `A–a normal ≤ 14 mmHg` in a list of values; `to get A–a normal` in a sentence.
+    const d = derivation('@ 08:00\noxygen room air\nabg 7.40/40/95/24');
+    expect(d.missing.find((m) => m.id === 'aa_gradient_upper_normal')?.message).toBe('add age (patient line) to get A–a normal');
+  });
+
   it('labels a low-flow FiO2 as an estimate and never uses it for P/F', () => {
     const d = derivation('@ 08:00\noxygen cannula 3 L/min\nabg 7.40/40/95/24');
     const est = d.derived.find((x) => x.id === 'fio2_estimated');

@@ -43,7 +43,17 @@ describe('readings and checks', () => {
   it('shows the bounds of an unusual value in another unit with the decimals that keep the value outside them', () => {
     // Height soft bounds 120–220 cm (the registry's own, common practice): 47.24–86.61 in.
     const messages = checkNote('patient height 47.1 in\n@ 08:00').findings.map((f) => f.message);
-    expect(messages).toContain('Height 47.1 in is unusual (usually 47.2 in to 87 in): check the unit and the transcription.');
+    expect(messages).toContain('Height 47.1 in is unusual (usually 47.2 in to 86.6 in): check the unit and the transcription.');
+  });
+
+  it('shows bounds in kPa with the decimals of kPa, and in a coarser unit without rounding them away', () => {
+    // PaCO2 bounds 5–400 mmHg hard, 15–150 mmHg usual: 0.7–53.3 kPa and 2.0–20.0 kPa, never `1 kPa to 53 kPa`.
+    const messages = (text: string) => checkNote(text).findings.map((f) => f.message);
+    expect(messages('@ 08:00\nabg pco2 56 kPa')).toContain('PaCO2 56 kPa is impossible (expected 0.7 kPa to 53.3 kPa); it is not used in calculations. In mmHg it would be ordinary.');
+    expect(messages('@ 08:00\nabg pco2 1.5 kPa')).toContain('PaCO2 1.5 kPa is unusual (usually 2.0 kPa to 20.0 kPa): check the unit and the transcription.');
+    // Tidal volume at most 1200 mL, inspiratory flow 10–120 L/min.
+    expect(messages('@ 08:00\nvent vt 1.5 L')).toContain('Tidal volume 1.5 L is unusual (usually at most 1.2 L): check the unit and the transcription.');
+    expect(messages('@ 08:00\nvent flow 0.1 L/s')).toContain('Inspiratory flow 0.1 L/s is unusual (usually 0.17 L/s to 2 L/s): check the unit and the transcription.');
   });
 
   it('shows a plateau of 30.4 and a driving pressure of 15.4 as such beside 30 and 15', () => {

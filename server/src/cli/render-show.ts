@@ -114,7 +114,9 @@ function renderTimepointFooter(tp: Timepoint, derivation: TimepointDerivation | 
     const from = visible(describeOrigin(v.origin));
     const list = groups.get(from) ?? [];
     const inKpa = showsKpa(tp) ? statedInKpa(v.stated) : null;
-    list.push(`${shortOf(v.stated.fieldId)} ${visible(inKpa ? `${inKpa} (${formatStated(v.stated)})` : formatStated(v.stated))}`);
+    // Marked as on the line it was stated on: a value not used there is not used where it carries to.
+    const flag = v.stated.usable ? '' : p.yellow(' (not used)');
+    list.push(`${shortOf(v.stated.fieldId)} ${visible(inKpa ? `${inKpa} (${formatStated(v.stated)})` : formatStated(v.stated))}${flag}`);
     groups.set(from, list);
   }
   for (const [from, values] of groups) lines.push(`  ${p.magenta('carried'.padEnd(8))} ${values.join(p.dim(' · '))} ${p.dim(`(${from})`)}`);

@@ -597,7 +597,8 @@ function duplicates(stated: readonly (StatedValue | undefined)[], from: number, 
       check: 'duplicate-key',
       line: s.line,
       span: s.item.key?.span ?? s.item.span,
-      message: `${s.field.label} is stated twice ${inHeader ? 'in the header' : 'at this timepoint'}; the later value is used.`,
+      // A later value that is not used itself (`ph 6.29`, impossible) still replaces the first: neither is used.
+      message: `${s.field.label} is stated twice ${inHeader ? 'in the header' : 'at this timepoint'}; ${s.usable ? 'the later value is used' : 'the later value replaces the first, but is not used itself (see its finding)'}.`,
       fixes: [],
       related: [{ line: earlier.line, span: earlier.item.span, message: 'first stated here' }],
     });

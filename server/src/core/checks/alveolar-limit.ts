@@ -17,7 +17,7 @@ export const pao2AboveAlveolar = defineCheck({
   doc: {
     fires: `The arterial PO2 is more than ${ALVEOLAR_ROUNDING_MMHG} mmHg above the alveolar PO2 that the FiO2, barometric pressure and PaCO2 in force allow. Blood cannot hold a higher PO2 than the gas it meets, so something in the note is wrong; no A–a gradient is computed, and no oxygenation or respiratory failure reading is given from that PaO2.`,
     example: '@ 08:00\noxygen room air\nabg ph 7.40, pco2 40, po2 160',
-    fix: 'Check the FiO2 in force (and where it came from), the unit of the PaO2 (kPa written as mmHg?), whether the sample was venous or arterial, and an air bubble in the syringe.',
+    fix: 'Check the FiO2 in force (and where it came from), the unit of the PaO2 (kPa written as mmHg?), and an air bubble in the syringe, which pulls the sample\'s PO2 towards that of room air.',
   },
   source: SOURCES['alveolar-gas-equation'],
   runTimepoint(ctx) {
@@ -39,7 +39,7 @@ export const pao2AboveAlveolar = defineCheck({
       message: alveolar.value < 0
         // The alveolar gas equation gives less than nothing: the inputs contradict each other whatever the PaO2.
         ? `No PaO2 is possible here: with ${allowed}, the barometric pressure and the PaCO2 in force, the alveolar PO2 comes out at ${gasPressureText(alveolar.value, 0, kpa)}. Check the FiO2, the altitude or pressure, and the units of PaCO2 and PaO2.`
-        : `PaO2 ${gasPressureText(pao2.stated.value, 0, kpa)} is above the alveolar PO2 of ${gasPressureText(alveolar.value, 0, kpa)} that ${allowed} allows here: check the FiO2, the unit, and whether the sample was venous or had an air bubble.`,
+        : `PaO2 ${gasPressureText(pao2.stated.value, 0, kpa)} is above the alveolar PO2 of ${gasPressureText(alveolar.value, 0, kpa)} that ${allowed} allows here: check the FiO2, the unit, and whether the sample had an air bubble.`,
       related,
     });
   },

@@ -112,7 +112,7 @@ export const unknownWord = readCheck('PN205', 'unknown-word', 'Unknown word valu
 });
 
 export const duplicateKey = readCheck('PN206', 'duplicate-key', 'Stated twice at one timepoint', 'warning', ['timeline'], FORMAT_RULE, {
-  fires: 'The same field is stated twice in the same section at one timepoint. The later value is used.',
+  fires: 'The same field is stated twice in the same section at one timepoint. The later value is used; where it is not usable itself (an impossible value, a unit in doubt), neither is.',
   example: '@ 08:00\nabg po2 71\nabg po2 64',
   fix: 'Remove one, or put the second measurement under its own timepoint (`@ 08:20`).',
 });

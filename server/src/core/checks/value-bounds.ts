@@ -7,7 +7,7 @@ import { softBoundsAt, unitsWithin, within } from '../analysis/bounds';
 import type { StatedValue } from '../analysis/model';
 import type { Bounds, FieldDef } from '../fields/registry';
 import { displayUnit, isSaturationFraction } from '../analysis/read-value';
-import { writtenDecimals } from '../present';
+import { decimalsFor, writtenDecimals } from '../present';
 import { convert, unitById, type UnitDef } from '../fields/units';
 import { toRange } from '../syntax/tree';
 import { formatAgainst, formatNumber } from '../util/format';
@@ -58,13 +58,32 @@ function describe(bounds: Bounds, field: FieldDef, s: StatedValue): string {
   // "usually 47 in to 87 in" when the bound is 47.24 in (120 cm).
   const first = inRead(s.value ?? s.parts?.[0] ?? NaN);
   const second = s.parts && s.parts.length > 1 ? inRead(s.parts[1]!) : NaN;
+  const decimals = boundDecimals(field, unit, canonical);
   const show = (v: number) => {
     const bound = inRead(v);
-    return `${formatAgainst(bound, field.decimals, first, second)}${unitSuffix(field, s)}`;
+    const text = formatAgainst(bound, decimals.places, first, second);
+    return `${decimals.trim ? String(Number(text)) : text}${unitSuffix(field, s)}`;
   };
   if (bounds.min !== undefined && bounds.max !== undefined) return `${show(bounds.min)} to ${show(bounds.max)}`;
   if (bounds.min !== undefined) return `at least ${show(bounds.min)}`;
   return `at most ${show(bounds.max ?? 0)}`;
+}
+
+/**
+ * The decimals of a bound shown in the unit the value was read in. In the field's own unit, the
+ * field's; in kPa, g/L, C or F, those the values are shown with elsewhere (`2.0 kPa`, `30 g/L`);
+ * in a coarser unit, as many as keep the field's resolution, trailing zeros left off (1200 mL is
+ * `1.2 L`, not `1 L`; 10 L/min is `0.17 L/s`, not `0 L/s`).
+ */
+function boundDecimals(field: FieldDef, unit: UnitDef | undefined, canonical: UnitDef | undefined): { places: number; trim: boolean } {
+  if (!unit || !canonical || unit === canonical) return { places: field.decimals, trim: false };
+  const known = decimalsFor(unit.id, -1);
+  if (known >= 0) return { places: known, trim: false };
+  const step = convert(10 ** -field.decimals, canonical, unit);
+  if (step === null || !(step > 0)) return { places: field.decimals, trim: false };
+  const places = Math.max(0, Math.ceil(-Math.log10(step) - 1e-9));
+  // A unit as fine as the field's own (mEq/L for mmol/L) keeps the field's decimals as written.
+  return places > field.decimals ? { places, trim: true } : { places: field.decimals, trim: false };
 }
 
 /** Whether any number of the value lies outside the bounds (a loop: this runs for every stated value). */
@@ -155,7 +174,8 @@ export const unusualValue = defineCheck({
     if (!outOfBounds(stated, soft)) return;
     ctx.report({
       range: toRange(stated.line, stated.item.value?.span ?? stated.item.span),
-      message: `${asWritten(field, stated)} is unusual (usually ${describe(soft ?? {}, field, stated)}): check the unit and the transcription.`,
+      // pH has no unit to check.
+      message: `${asWritten(field, stated)} is unusual (usually ${describe(soft ?? {}, field, stated)}): check ${unitSuffix(field, stated) ? 'the unit and ' : ''}the transcription.`,
     });
   }),
 });

@@ -394,6 +394,14 @@ function evaluateDef(def: DerivedDefinition, c: DeriveContext): DerivedValue | M
 type ValueOutcome = Extract<Outcome, { kind: 'value' }>;
 
 /**
+ * A derived value's short name as a sentence names it: `A–a normal`, not the `A–a normal ≤` that a
+ * number follows in a list of values (`add age to get A–a normal`).
+ */
+export function shortAsName(short: string): string {
+  return short.endsWith(' ≤') ? short.slice(0, -2) : short;
+}
+
+/**
  * A derived value that cannot be computed here, and what to add to get it. Its message is built
  * on first read: most are asked for by another value or a reading (the anion gap by every gas)
  * and never shown.
@@ -411,7 +419,7 @@ class Missing implements MissingValue {
     this.label = def.label;
     this.needs = needs;
     this.line = line;
-    this.#short = def.short;
+    this.#short = shortAsName(def.short);
   }
 
   get message(): string {

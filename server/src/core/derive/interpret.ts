@@ -439,7 +439,7 @@ function hypercapniaNoFio2Text(g: GasFacts): string {
 }
 
 function hypercapniaOnAirText(g: GasFacts): string {
-  return `Hypercapnia (${co2Words(g)}) without hypoxaemia on air (${o2Words(g)}, ${o2Side(g)}): consistent with ventilatory (hypercapnic) failure; the type 2 respiratory failure read here also needs hypoxaemia.`;
+  return `Hypercapnia (${co2Words(g)}) without hypoxaemia on air (${o2Words(g)}, ${o2Side(g)}): consistent with ventilatory (hypercapnic) failure; type 2 respiratory failure, as Pneumark reads it, also needs hypoxaemia.`;
 }
 
 function acidBaseNotReadText(g: GasFacts): string {

@@ -11,6 +11,7 @@ import type { StatedValue, Timepoint } from '../analysis/model';
 import { displayUnit } from '../analysis/read-value';
 import type { DerivedValue, TimepointDerivation } from '../derive/model';
 import { derivedDef } from '../derive/registry';
+import { shortAsName } from '../derive/context';
 import { fieldFor, fieldsInSection, loincFor, type FieldDef } from '../fields/registry';
 import { sectionById, type SectionId } from '../fields/sections';
 import { describeInput, formatAlternative, formatStated, statedInKpa } from '../present';
@@ -281,7 +282,8 @@ function missingGroups(d: TimepointDerivation): string[] {
   const groups = new Map<string, string[]>();
   for (const m of d.missing) {
     const key = wordList(m.needs);
-    const what = derivedDef(m.id)?.short ?? m.label;
+    const short = derivedDef(m.id)?.short;
+    const what = short !== undefined ? shortAsName(short) : m.label;
     const list = groups.get(key);
     if (list) list.push(what);
     else groups.set(key, [what]);
