@@ -19,6 +19,11 @@ describe('a timepoint earlier than the one before (PN308)', () => {
     expect(backAt('@ day 3 08:00\n@ +1h\n@ day 2\n')).toEqual([3]);
   });
 
+  it('names the timepoint by its time as written, not by its label', () => {
+    const messages = checkNote('@ day 2 08:00\n@ day 1 00:39  but this is\n').findings.filter((f) => f.code === 'PN308').map((f) => f.message);
+    expect(messages).toEqual(['This timepoint (@ day 1 00:39) is earlier than the one before it.']);
+  });
+
   it('not for the same day, a later day, or a time later on a day given alone', () => {
     expect(backAt('@ day 1 08:00\n@ day 1\n@ day 2\n@ 09:00\n')).toEqual([]);
     expect(backAt('@ day 2\n@ day 2 07:00\n@ day 3\n')).toEqual([]);

@@ -26,7 +26,9 @@ export const timeGoesBack = defineCheck({
       if (back && tp.line !== null) {
         const node = tree.lines[tp.line];
         const span = node?.kind === 'timepoint' && node.time ? node.time.span : { start: 0, end: node?.text.length ?? 0 };
-        ctx.report({ range: toRange(tp.line, span), message: `This timepoint (${tp.label}) is earlier than the one before it.` });
+        // Named by its time as written: its label may be any words (`@ day 1 00:39  but this is`).
+        const time = node?.kind === 'timepoint' && node.time ? `@ ${node.time.text}` : tp.label;
+        ctx.report({ range: toRange(tp.line, span), message: `This timepoint (${time}) is earlier than the one before it.` });
       }
       if (minutes !== null) lastMinutes = minutes;
       if (day !== null) lastDay = day;
