@@ -14,7 +14,7 @@ describe('an oxygen line and a vent line at one timepoint (PN311)', () => {
     expect(f).toHaveLength(1);
     expect(f[0]?.severity).toBe('warning');
     expect(f[0]?.range).toEqual({ start: { line: 1, character: 0 }, end: { line: 1, character: 6 } });
-    expect(f[0]?.message).toBe('This oxygen line is ended by the vent line below it (line 3) at the same timepoint, so its device (mask) and FiO2 0.50 are not used at this timepoint nor carried. If the therapy changed during this timepoint, give the change a timepoint of its own. If the FiO2 is the ventilator\'s, write it on the vent line.');
+    expect(f[0]?.message).toBe('This oxygen line is ended by the vent line below it (line 3) at the same timepoint, so its device (mask) and FiO2 0.50 are neither used at this timepoint nor carried. If the therapy changed during this timepoint, give the change a timepoint of its own. If the FiO2 is the ventilator\'s, write it on the vent line.');
     expect(f[0]?.related).toEqual([{ range: { start: { line: 2, character: 0 }, end: { line: 2, character: 4 } }, message: 'this vent line ends the oxygen line above it' }]);
   });
 
@@ -29,11 +29,11 @@ describe('an oxygen line and a vent line at one timepoint (PN311)', () => {
   it('reports a vent line ended by an oxygen line below it (coming off the ventilator within one timepoint)', () => {
     const f = pn311('@ 10:00\nvent mode VC, vt 450 mL, rate 14, peep 5, fio2 0.4\noxygen cannula 2');
     expect(f.map((x) => x.range.start.line)).toEqual([1]);
-    expect(f[0]?.message).toBe('This vent line is ended by the oxygen line below it (line 3) at the same timepoint, so its mode VC, VT 450 mL, rate 14 /min, PEEP 5 cmH2O and FiO2 0.40 are not used at this timepoint nor carried. If the therapy changed during this timepoint, give the change a timepoint of its own.');
+    expect(f[0]?.message).toBe('This vent line is ended by the oxygen line below it (line 3) at the same timepoint, so its mode VC, VT 450 mL, rate 14 /min, PEEP 5 cmH2O and FiO2 0.40 are neither used at this timepoint nor carried. If the therapy changed during this timepoint, give the change a timepoint of its own.');
   });
 
   it('says one setting in the singular', () => {
-    expect(pn311('@ 11:00\noxygen mask\nvent plateau 20')[0]?.message).toContain('so its device (mask) is not used');
+    expect(pn311('@ 11:00\noxygen mask\nvent plateau 20')[0]?.message).toContain('so its device (mask) is neither used');
   });
 
   it('stays silent for one therapy per timepoint, for a change at a timepoint of its own, and for a vent line of readings only above an oxygen line', () => {

@@ -65,7 +65,7 @@ export const therapyOverlap = defineCheck({
         : '';
       ctx.report({
         range: toRange(s.line, sectionSpan(lines[s.line])),
-        message: `This ${therapy} line is ended by the ${other} line below it (line ${ender + 1}) at the same timepoint, so its ${settingsText(lost)} ${lost.length === 1 ? 'is' : 'are'} not used at this timepoint nor carried. If the therapy changed during this timepoint, give the change a timepoint of its own.${hint}`,
+        message: `This ${therapy} line is ended by the ${other} line below it (line ${ender + 1}) at the same timepoint, so its ${settingsText(lost)} ${lost.length === 1 ? 'is' : 'are'} neither used at this timepoint nor carried. If the therapy changed during this timepoint, give the change a timepoint of its own.${hint}`,
         related: [{ range: toRange(ender, sectionSpan(lines[ender])), message: `this ${other} line ends the ${therapy} line above it` }],
       });
     }
