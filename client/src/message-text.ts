@@ -8,13 +8,9 @@
  */
 import { shownEscaped } from '../../server/src/core/util/format';
 
-/** Text for a title or the status bar: reordering and invisible characters escaped. */
-export function shownName(text: string): string {
-  return shownEscaped(text);
-}
-
 /**
- * Text for a notification's message: as `shownName`, and never a link. A zero-width space between
+ * Text for a notification's message: reordering and invisible characters escaped (`shownEscaped`,
+ * which titles and the status bar use as it is), and never a link. A zero-width space between
  * `]` and `(` keeps `[a](b)` from reading as a link and shows the name unchanged.
  */
 export function inMessage(text: string): string {

@@ -7,7 +7,7 @@
  */
 import * as vscode from 'vscode';
 import { SUMMARY_REQUEST, type SummaryParams, type SummaryResult } from '../../server/src/protocol';
-import { shownName } from './message-text';
+import { shownEscaped } from '../../server/src/core/util/format';
 
 export const LANGUAGE = 'pneumark';
 
@@ -17,7 +17,7 @@ export type Requester = <R>(method: string, params: unknown) => Promise<R>;
 /** What the item shows for a summary: its text, tooltip and the name a screen reader reads. */
 export function statusContent(raw: SummaryResult): { text: string; tooltip: string; accessibleName: string } {
   // A label from the note is text: characters that reorder or hide text are shown as escapes.
-  const summary = { label: shownName(raw.label), text: shownName(raw.text), tooltip: raw.tooltip.split('\n').map(shownName).join('\n') };
+  const summary = { label: shownEscaped(raw.label), text: shownEscaped(raw.text), tooltip: raw.tooltip.split('\n').map(shownEscaped).join('\n') };
   // `$(name)` in it must not turn into an icon.
   const text = `$(pulse) ${summary.text.replace(/\$\(/g, '\\$(')}`;
   const figures = summary.text.split(' · ').map(spokenFigure).join(', ');

@@ -13,7 +13,8 @@ import { randomBytes } from 'node:crypto';
 import * as vscode from 'vscode';
 import { TRENDS_REQUEST, type TrendPoint, type TrendsParams, type TrendsResult } from '../../server/src/protocol';
 import { fromWebview, trendViewState, type FromWebview, type ToWebview } from '../webview/messages';
-import { inMessage, shownName } from './message-text';
+import { shownEscaped } from '../../server/src/core/util/format';
+import { inMessage } from './message-text';
 import { LANGUAGE, type Requester } from './status';
 import { trendPageHtml } from './trend-html';
 
@@ -130,7 +131,7 @@ export class TrendView implements vscode.Disposable, vscode.WebviewPanelSerializ
 
   /** The note's name as the view shows it (its title, its messages): see message-text.ts. */
   private name(uri: vscode.Uri): string {
-    return shownName(uri.scheme === 'untitled' ? uri.path : vscode.workspace.asRelativePath(uri));
+    return shownEscaped(uri.scheme === 'untitled' ? uri.path : vscode.workspace.asRelativePath(uri));
   }
 
   private adopt(panel: vscode.WebviewPanel): void {

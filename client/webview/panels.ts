@@ -10,16 +10,6 @@ import type { TrendPoint, TrendSeries, TrendUnit } from '../../server/src/protoc
 import { shownEscaped } from '../../server/src/core/util/format';
 
 /**
- * Text from a note or a file name as the view shows it: characters that reorder or hide text
- * (U+202E, U+2066, zero-width spaces, controls) written as escapes (`\u{202E}`), as the editor's
- * messages and hovers write them, so that a label such as `a\u{202E}exe.pdf` cannot read as
- * something the note does not hold.
- */
-export function shownText(text: string): string {
-  return shownEscaped(text);
-}
-
-/**
  * The x value of each point: hours since day 1 00:00 when every timepoint has a time and the
  * times never go back, else the timepoint's number (1, 2, …). The chart needs x values in order:
  * a note whose times go back (PN308) drawn by time would leave points off the chart, scale the
@@ -164,7 +154,8 @@ export function timepointTable(points: readonly TrendPoint[]): TimepointTable {
   return {
     headings: series.map((s) => (s.unit === 'pH' ? s.label : `${s.label} (${s.unit})`)),
     rows: points.map((p) => ({
-      label: shownText(p.label),
+      // Characters that reorder or hide text written as escapes, as the editor's messages write them.
+      label: shownEscaped(p.label),
       line: p.line,
       cells: series.map((s) => {
         const v = p.values[s.key];

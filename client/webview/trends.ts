@@ -10,7 +10,8 @@
 import uPlot from 'uplot';
 import type { TrendPoint } from '../../server/src/protocol';
 import { toWebview, type FromWebview, type ToWebview, type TrendViewState } from './messages';
-import { emptyMessage, legendText, panelLayouts, seriesDash, shownText, timepointTable, xAxis } from './panels';
+import { shownEscaped, wordList } from '../../server/src/core/util/format';
+import { emptyMessage, legendText, panelLayouts, seriesDash, timepointTable, xAxis } from './panels';
 
 interface VsCodeApi {
   postMessage(message: FromWebview): void;
@@ -107,12 +108,12 @@ function render(list: readonly TrendPoint[], note: string, closed: boolean): voi
   for (const c of charts.splice(0)) c.destroy();
   const main = document.getElementById('charts');
   const title = document.getElementById('title');
-  if (title) title.textContent = `Trends — ${shownText(note)}`;
+  if (title) title.textContent = `Trends — ${shownEscaped(note)}`;
   if (!main) return;
   main.replaceChildren();
   if (closed) main.append(paragraph('notice', 'This note is closed: these are its trends as they were when it closed. Go to a timepoint to open it again.'));
   const empty = emptyMessage(list);
-  const shown = `Trends of ${shownText(note)}${closed ? ', as they were when the note closed' : ''}`;
+  const shown = `Trends of ${shownEscaped(note)}${closed ? ', as they were when the note closed' : ''}`;
   if (empty !== null) {
     main.append(paragraph('empty', empty));
     announce(`${shown}: ${empty}`);
@@ -166,7 +167,7 @@ function render(list: readonly TrendPoint[], note: string, closed: boolean): voi
     // The chart is a picture, and its legend a table of the values under the mouse: hidden from
     // screen readers, which are told where the same values are.
     chart.root.setAttribute('aria-hidden', 'true');
-    section.append(paragraph('visually-hidden', `${chartedText(panel.series.map((s) => s.label))} by ${hours ? 'hour' : 'timepoint'}: a chart, its values in the table "Values by timepoint" below.`));
+    section.append(paragraph('visually-hidden', `${wordList(panel.series.map((s) => s.label))} by ${hours ? 'hour' : 'timepoint'}: a chart, its values in the table "Values by timepoint" below.`));
     chart.over.addEventListener('click', () => {
       const idx = chart.cursor.idx;
       if (idx === null || idx === undefined) return;
@@ -256,14 +257,9 @@ function table(list: readonly TrendPoint[]): HTMLElement {
   return section;
 }
 
-/** `PaO2`, `PaO2 and P/F`, `PEEP, ΔP and Cstat`. */
-function chartedText(labels: readonly string[]): string {
-  return labels.length <= 1 ? labels.join('') : `${labels.slice(0, -1).join(', ')} and ${labels[labels.length - 1]!}`;
-}
-
 function labelAt(x: number | null, idx: number | null): string {
   const p = idx === null ? undefined : points[idx];
-  return p ? shownText(p.label) : x === null ? '—' : String(x);
+  return p ? shownEscaped(p.label) : x === null ? '—' : String(x);
 }
 
 function showText(className: string, text: string): void {
