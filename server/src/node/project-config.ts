@@ -1,4 +1,17 @@
-const FIRST_CHARACTER = { start: { line: 0, character: 0 }, end: { line: 0, character: 1 } };
+/**
+ * Finds `pneumark.config.json` upward from a note's folder and reads it (cached by path and
+ * modification time). Shared by the language server (notes by URI; only `file:` notes have a
+ * project file) and the CLI (notes by path).
+ */
+import { lstatSync, readFileSync, realpathSync, statSync } from 'node:fs';
+import { basename, dirname, join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { CONFIG_FILE_NAME, parseProjectConfig, type ParsedConfig } from '../core/config';
+
+/** The defaults, with one problem reported at the start of the file. */
+function defaultsWith(message: string): ParsedConfig {
+  return { settings: {}, hints: {}, problems: [{ message, range: { start: { line: 0, character: 0 }, end: { line: 0, character: 1 } } }] };
+}
 
 /**
  * Whether a project file that is a symbolic link leads to a JSON file. A link to any other file
@@ -11,16 +24,6 @@ function linksToJson(path: string): boolean {
   if (!lstatSync(path).isSymbolicLink()) return true;
   return /\.json$/i.test(basename(realpathSync.native(path)));
 }
-
-/**
- * Finds `pneumark.config.json` upward from a note's folder and reads it (cached by path and
- * modification time). Shared by the language server (notes by URI; only `file:` notes have a
- * project file) and the CLI (notes by path).
- */
-import { lstatSync, readFileSync, realpathSync, statSync } from 'node:fs';
-import { basename, dirname, join } from 'node:path';
-import { fileURLToPath } from 'node:url';
-import { CONFIG_FILE_NAME, parseProjectConfig, type ParsedConfig } from '../core/config';
 
 export interface FoundConfig {
   readonly path: string;
@@ -87,12 +90,12 @@ export class ProjectConfigs {
     let config: ParsedConfig;
     try {
       config = !linksToJson(path)
-        ? { settings: {}, hints: {}, problems: [{ message: `${CONFIG_FILE_NAME} is a symbolic link to a file whose name does not end in .json, so Pneumark does not read it; it uses its defaults.`, range: FIRST_CHARACTER }] }
+        ? defaultsWith(`${CONFIG_FILE_NAME} is a symbolic link to a file whose name does not end in .json, so Pneumark does not read it; it uses its defaults.`)
         : stat.size > 1024 * 1024
-          ? { settings: {}, hints: {}, problems: [{ message: `${CONFIG_FILE_NAME} is larger than 1 MB; Pneumark uses its defaults.`, range: FIRST_CHARACTER }] }
+          ? defaultsWith(`${CONFIG_FILE_NAME} is larger than 1 MB; Pneumark uses its defaults.`)
           : parseProjectConfig(readFileSync(path, 'utf8'));
     } catch (error) {
-      config = { settings: {}, hints: {}, problems: [{ message: `${CONFIG_FILE_NAME} could not be read (${error instanceof Error ? error.message : String(error)}).`, range: FIRST_CHARACTER }] };
+      config = defaultsWith(`${CONFIG_FILE_NAME} could not be read (${error instanceof Error ? error.message : String(error)}).`);
     }
     this.cache.set(path, { mtimeMs: stat.mtimeMs, size: stat.size, config });
     return config;
