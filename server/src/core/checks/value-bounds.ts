@@ -159,11 +159,12 @@ export const unusualValue = defineCheck({
     // Most values are within the usual bounds, which a low barometric pressure only widens: asked first.
     if (!field.soft || !outOfBounds(stated, field.soft)) return;
     if (stated.value !== null && stated.item.number !== null && isSaturationFraction(field, stated.item.number, stated.item)) {
-      const percent = formatNumber(stated.item.number * 100, Math.max(0, writtenDecimals(stated.item.value?.text ?? '') - 2));
-      const span = stated.item.value?.span ?? stated.item.span;
+      const written = stated.item.value!;
+      const percent = formatNumber(stated.item.number * 100, Math.max(0, writtenDecimals(written.text) - 2));
+      const span = written.span;
       ctx.report({
         range: toRange(stated.line, span),
-        message: `${field.short ?? field.label} ${stated.item.value?.text ?? ''} reads as ${stated.item.value?.text ?? ''} %, far below any measured saturation: a fraction for ${percent} %? It is not used in calculations until it is written as a percentage.`,
+        message: `${field.short ?? field.label} ${written.text} reads as ${written.text} %, far below any measured saturation: a fraction for ${percent} %? It is not used in calculations until it is written as a percentage.`,
         fixes: [{ title: `Write \`${percent}\``, edits: [{ range: toRange(stated.line, span), newText: percent }], preferred: true }],
       });
       return;

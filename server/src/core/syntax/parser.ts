@@ -5,7 +5,8 @@
  */
 import { fieldFor, FIELDS, type FieldDef } from '../fields/registry';
 import { SECTIONS, sectionByName, type SectionDef, type SectionId } from '../fields/sections';
-import { convert, isKnownUnitSpelling, unitById, unitsForSpelling, UNITS } from '../fields/units';
+import { isKnownUnitSpelling, unitsForSpelling, UNITS } from '../fields/units';
+import { unitsWithin } from '../analysis/bounds';
 import { closest } from '../util/suggest';
 import { Chunk, isBlank, isDigit, leadingNumber, LEXED, lowerCase, releaseWords, scanNumber, scanWord, SCANNED, wordsOf, Word } from './lexer';
 import type {
@@ -1464,18 +1465,11 @@ const THOUSANDS_LIKE = /^[-+−]?[0-9]{1,3},[0-9]{3}$/u;
  * impossible the comma is a decimal comma, as for any other number (`ph 7,352` is pH 7.352).
  */
 export function thousandsReading(field: FieldDef | null, text: string, unitText: string | null): number | null {
-  if (field === null || field.kind !== 'number' || !field.hard || !field.unit || !THOUSANDS_LIKE.test(text)) return null;
-  const canonical = unitById(field.unit);
-  if (!canonical) return null;
+  if (field === null || field.kind !== 'number' || !field.hard || !THOUSANDS_LIKE.test(text)) return null;
   const value = Number(text.replace(',', '').replace('−', '-'));
-  const units = unitText === null ? (field.units ?? [field.unit]).map((id) => unitById(id)) : unitsForSpelling(unitText).filter((u) => field.units?.includes(u.id));
-  for (const unit of units) {
-    if (!unit) continue;
-    const inCanonical = convert(value, unit, canonical);
-    if (inCanonical === null) continue;
-    if ((field.hard.min === undefined || inCanonical >= field.hard.min) && (field.hard.max === undefined || inCanonical <= field.hard.max)) return value;
-  }
-  return null;
+  const possible = unitsWithin(field, value, null, field.hard);
+  const fits = unitText === null ? possible.length > 0 : unitsForSpelling(unitText).some((u) => possible.includes(u));
+  return fits ? value : null;
 }
 
 /** The items of the line `parseItems` reads (emptied before it returns). */
