@@ -6,7 +6,7 @@
 // practice, no source). Hypoxaemia PaO2 < 60 mmHg, hypercapnia PaCO2 > 50 mmHg (common practice, no
 // source). Low inspired oxygen: PiO2 below 140 mmHg (Pneumark's convention, interpret.ts).
 import { describe, expect, it } from 'vitest';
-import { derived, readings } from './helpers';
+import { derivation, derived, readings } from './helpers';
 
 const at = (pb: number, gas: string) => `patient age 40 y\nplace barometric ${pb} mmHg\n@ 08:00\noxygen room air\n${gas}`;
 
@@ -58,5 +58,29 @@ describe('a place stated but not usable', () => {
   });
   it('with the unit written, the same altitude gives PiO2 ≈ 94 mmHg (West 1996 model, from memory)', () => {
     expect(derived('patient age 40 y\nplace altitude 12000 ft\n@ 08:00\noxygen room air\nabg 7.40/40/50/24', 'pio2').value).toBeCloseTo(94.2, 0);
+  });
+});
+
+describe('P/F adjusted for altitude: from 740 mmHg down', () => {
+  // P/F × PB ÷ 760 (ARDS Definition Task Force, JAMA 2012;307:2526–2533, from memory); it starts
+  // below 740 mmHg (Pneumark's convention: weather moves sea-level pressure by about 20 mmHg either
+  // way, common practice, no source). PaO2 90 on FiO2 0.4: P/F 225.
+  const vent = (pb: number) => `place barometric ${pb} mmHg\n@ 08:00\nvent mode vc, peep 8, fio2 0.4\nabg 7.38/42/90/24`;
+
+  const notApplied = (pb: number) => derivation(vent(pb)).notApplicable.find((n) => n.id === 'pf_ratio_altitude_adjusted');
+
+  it('at 741 mmHg it is not applicable, and the reason names the threshold', () => {
+    expect(notApplied(741)?.reason).toBe('barometric pressure is 740 mmHg or more, close to sea level (the adjustment starts below 740 mmHg)');
+  });
+
+  it('at 740 mmHg, on the threshold, it is still not applied', () => {
+    expect(notApplied(740)).toBeDefined();
+    expect(notApplied(739)).toBeUndefined();
+  });
+
+  it('at 739 mmHg it is 225 × 739 ÷ 760 = 218.8, and the oxygenation band uses it', () => {
+    expect(derived(vent(739), 'pf_ratio_altitude_adjusted').value).toBeCloseTo(218.78, 1);
+    expect(readings(vent(739))['oxygenation-band']).toMatch(/219/);
+    expect(readings(vent(741))['oxygenation-band']).toMatch(/^P\/F 225 mmHg/);
   });
 });

@@ -190,13 +190,22 @@ export const pfRatioAltitude = defineDerived({
     const pf = c.derived('pf_ratio', 'P/F');
     const pb = c.derived('barometric', 'PB');
     if (!pf || !pb) return c.missing([pf, c.lacking('pf_ratio')]);
-    if (pb.value >= SEA_LEVEL_MMHG - 20) return NEAR_SEA_LEVEL;
+    if (pb.value >= PF_ADJUSTED_BELOW_MMHG) return NEAR_SEA_LEVEL;
     return c.value(pfRatioAltitudeAdjusted(pf.value, pb.value), [pf, pb]);
   },
 });
 
+/**
+ * The altitude adjustment starts below 740 mmHg, about 220 m in the standard atmosphere
+ * (Pneumark's convention). Weather alone moves the pressure at sea level by some 20 mmHg either
+ * way (common practice, no source), and adjusting for it would move a P/F across a band edge for no
+ * clinical reason; the Berlin definition asks for the adjustment above 1,000 m (ARDS Definition
+ * Task Force 2012, from memory), which this threshold includes.
+ */
+export const PF_ADJUSTED_BELOW_MMHG = SEA_LEVEL_MMHG - 20;
+
 /** Most notes are near sea level: one outcome serves every gas. */
-const NEAR_SEA_LEVEL: Outcome = { kind: 'na', reason: 'barometric pressure is close to sea level' };
+const NEAR_SEA_LEVEL: Outcome = { kind: 'na', reason: `barometric pressure is ${PF_ADJUSTED_BELOW_MMHG} mmHg or more, close to sea level (the adjustment starts below ${PF_ADJUSTED_BELOW_MMHG} mmHg)` };
 
 export const sfRatioDef = defineDerived({
   id: 'sf_ratio',
