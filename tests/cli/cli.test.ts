@@ -149,7 +149,7 @@ describe('pneumark show', async () => {
     const text = out.out();
     expect(text).toMatch(/derived {2}.*P\/F 93 mmHg/);
     expect(text).toMatch(/ΔP 19 cmH2O/);
-    expect(text).toMatch(/\* uses a value carried from an earlier timepoint/);
+    expect(text).toMatch(/ΔP 15 cmH2O\*/);
     expect(text).toMatch(/missing {2}add spo2 to get OSI/);
     expect(text).toMatch(/reading {2}P\/F 93 mmHg with PEEP 8 cmH2O: consistent with the ≤ 100 mmHg oxygenation band/);
   });

@@ -10,6 +10,12 @@ import { describe, expect, it } from 'vitest';
 import { memoryIo, type MemoryIo } from '../helpers/memory-io';
 import { run } from '../../server/src/cli/main';
 import { visible } from '../../server/src/cli/visible';
+import { Legend } from '../../server/src/cli/render-legend';
+import { checkNote } from '../../server/src/core/check-note';
+import { renderDerived } from '../../server/src/cli/render-derived';
+import { paint } from '../../server/src/cli/colour';
+import { DERIVED } from '../../server/src/core/derive/registry';
+import { shortAsName } from '../../server/src/core/derive/context';
 
 const io = (stdinText = '', colour = false): MemoryIo => memoryIo({ stdin: stdinText, env: colour ? { FORCE_COLOR: '1' } : { NO_COLOR: '1' }, tty: colour });
 
@@ -307,5 +313,118 @@ describe('--quiet', () => {
     expect(await run(['check', '--quiet', '--max-warnings', String(warnings - 1), note], strict)).toBe(1);
     expect(strict.err()).toContain(`pneumark: ${warnings} warning`);
     expect(await run(['check', '--quiet', '--max-warnings', String(warnings), note], io())).toBe(0);
+  });
+});
+
+describe('show\'s legend', () => {
+  const shown = async (args: string[], stdinText = ''): Promise<string> => {
+    const out = io(stdinText);
+    await run(['show', ...args], out);
+    return out.out();
+  };
+  /** The legend's entries, by the name or mark they explain. */
+  const legendOf = (text: string): Map<string, string> => {
+    const start = text.indexOf('\nlegend\n');
+    if (start < 0) return new Map();
+    const lines = text.slice(start + '\nlegend\n'.length).split('\n\n')[0]!.split('\n');
+    return new Map(lines.map((l) => /^ {2}(.+?) {2,}(\S.*)$/.exec(l)!).map((m) => [m[1]!, m[2]!]));
+  };
+
+  it('explains each short name the output used, once, with its name and unit from the registry of derived values', async () => {
+    const text = await shown(['samples/icu-ventilated-lung-injury.pneu']);
+    const legend = legendOf(text);
+    expect(legend.get('MP surr')).toBe('Mechanical power (surrogate, volume control), in J/min');
+    expect(legend.get('VR')).toBe('Ventilatory ratio');
+    expect(legend.get('OSI')).toBe('Oxygen saturation index');
+    expect(legend.get('A–a normal')).toBe('A–a gradient, upper normal for age, in mmHg');
+    // A name that is only the short one with "ratio" or "gradient" after it comes with its formula.
+    expect(legend.get('P/F')).toBe('P/F ratio (PaO2 ÷ FiO2), in mmHg');
+    expect(legend.get('Δ ratio')).toBe('Delta ratio ((AG − 12) ÷ (24 − HCO3))');
+    // Every derived value the note shows is in it, and nothing else of the registry.
+    const shownIds = new Set<string>();
+    const result = checkNote(readFileSync('samples/icu-ventilated-lung-injury.pneu', 'utf8'));
+    for (const tp of result.analysis.timeline.timepoints) {
+      const d = result.analysis.derivation(tp.index);
+      for (const v of d?.derived ?? []) if (v.id !== 'barometric' || v.inputs[0]?.origin.kind !== 'default') shownIds.add(v.id);
+      for (const m of d?.missing ?? []) shownIds.add(m.id);
+    }
+    for (const def of DERIVED) expect(legend.has(shortAsName(def.short)), def.id).toBe(shownIds.has(def.id));
+    expect(text.split('\nlegend\n')).toHaveLength(2);
+  });
+
+  it('lists only what appeared: the summit note has no mechanics and no findings under lines', async () => {
+    const legend = legendOf(await shown(['samples/summit-hut-evacuation.pneu']));
+    expect(legend.has('P/F × PB/760')).toBe(true);
+    expect(legend.has('FiO2 est')).toBe(true);
+    expect(legend.has('MP')).toBe(false);
+    expect(legend.has('OSI')).toBe(false);
+    expect(legend.has('PNnnn (l:c)')).toBe(false);
+    expect(legend.has('(not used)')).toBe(false);
+  });
+
+  it('explains the carried-value mark once, at the end, not under every timepoint that uses it', async () => {
+    const text = await shown(['samples/icu-ventilated-lung-injury.pneu']);
+    expect(text).toMatch(/Cstat 28 mL\/cmH2O\*/);
+    expect(text.match(/carried from an earlier timepoint/g)).toHaveLength(1);
+    expect(legendOf(text).get('*')).toBe('a derived value computed with a value carried from an earlier timepoint');
+  });
+
+  it('explains (not used), a unit in doubt, an unreadable line and a finding\'s code and place when they appear', async () => {
+    const legend = legendOf(await shown(['samples/broken-note.pneu']));
+    expect(legend.get('(not used)')).toMatch(/^left out of every calculation; the finding under the line it was written on says why$/);
+    expect(legend.get('… ?')).toMatch(/unit is in doubt/);
+    expect(legend.get('? …')).toMatch(/could not read/);
+    expect(legend.get('PNnnn (l:c)')).toMatch(/check code and its line:column; `pneumark docs` explains every code/);
+    expect(legend.has('@ (start)')).toBe(false);
+  });
+
+  it('explains @ (start) when measurements come before the first @ line, and is left out when nothing needs explaining', async () => {
+    expect(legendOf(await shown(['-'], 'vitals hr 80\n@ 08:00\nvitals hr 82\n')).get('@ (start)')).toMatch(/before the note's first @ line/);
+    expect(await shown(['-'], '@ 08:00\nvitals hr 82\n')).not.toContain('legend');
+  });
+
+  it('gives gas pressures shown in kPa first as in kPa (mmHg)', async () => {
+    const legend = legendOf(await shown(['samples/home-oxygen-exacerbation.pneu']));
+    expect(legend.get('P/F')).toBe('P/F ratio (PaO2 ÷ FiO2), in kPa (mmHg)');
+    expect(legend.get('HCO3 calc')).toBe('HCO3 calculated from pH and PaCO2, in mmol/L');
+  });
+
+  it('takes every entry from the registry: each derived value\'s name and unit', () => {
+    const legend = new Legend();
+    for (const def of DERIVED) legend.value(def.id, false);
+    const lines = legend.lines(paint(false)).slice(2);
+    expect(lines).toHaveLength(DERIVED.length);
+    DERIVED.forEach((def, i) => {
+      expect(lines[i]).toContain(`  ${shortAsName(def.short)} `);
+      expect(lines[i]).toContain(def.label);
+      if (def.unit) expect(lines[i]).toMatch(new RegExp(`, in ${def.unit.replace(/[/()]/g, '\\$&')}$`));
+    });
+  });
+
+  it('marks an estimate whose short name does not say so with est., and explains the mark', () => {
+    const result = checkNote('@ 08:00\noxygen room air\nabg ph 7.40, pco2 40, po2 90\n');
+    const tp = result.analysis.timeline.timepoints[0]!;
+    const real = result.analysis.derivation(0)!;
+    const pf = real.derived.find((v) => v.id === 'pf_ratio')!;
+    const legend = new Legend();
+    const lines = renderDerived(tp, { ...real, derived: [{ ...pf, estimate: true }], missing: [], interpretations: [] }, paint(false), legend);
+    expect(lines[0]).toBe('  derived  P/F 429 mmHg est.');
+    expect(legend.lines(paint(false))).toContain('  est.  a derived value that is an estimate by a rough rule');
+  });
+
+  it('is announced by show --help, which names every row of the output', async () => {
+    const out = io();
+    await run(['show', '--help'], out);
+    const help = out.out();
+    for (const row of ['header', 'SECTION', 'carried', 'derived', 'missing', 'reading']) expect(help, row).toMatch(new RegExp(`\\b${row}\\b`));
+    expect(help.replace(/\s+/g, ' ')).toContain('A legend at the end explains every short name and mark used above');
+  });
+
+  it('is plain text without colour, and only our colour codes on a terminal', async () => {
+    const plain = await shown(['samples/broken-note.pneu']);
+    expect(plain).not.toContain('\u001b[');
+    const coloured = io('', true);
+    await run(['show', 'samples/broken-note.pneu'], coloured);
+    expect(coloured.out()).toContain('\u001b[1mlegend\u001b[22m');
   });
 });

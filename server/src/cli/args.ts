@@ -45,10 +45,18 @@ closed early (e.g. by head).
 ${CAUTION}`,
   show: `Usage: pneumark show FILE
 
-Prints each timepoint with the values Pneumark understood (normalised, with units), the values
-carried in from earlier timepoints and where they were stated, derived values with what is
-missing to compute others, readings ("consistent with ..."), and each finding under its line.
-Colour on a terminal; set NO_COLOR to turn it off.`,
+Prints the note as Pneumark reads it (FILE may be - for standard input): a first line with the
+file, its number of timepoints and its findings by severity; the header (patient, place and
+units lines before the first @ line: they hold for the whole note); then each timepoint (@, its
+time, its label and its line number) with
+  SECTION    each line's values, normalised, with units (the other unit system in brackets)
+  carried    values in force from an earlier timepoint, with the line they were stated on
+  derived    values computed from those in force
+  missing    what to add (as keys written in a note) to get the ones that could not be computed
+  reading    what the values are consistent with
+and each finding (error, warning or info) under the line it belongs to. A legend at the end
+explains every short name and mark used above (P/F, *, (not used) ...), with names and units.
+Colour on a terminal; set NO_COLOR to turn it off. Exit code 1 when a finding is an error.`,
   check: `Usage: pneumark check PATH... [options]
 
 Options:

@@ -5,9 +5,13 @@ import { showsKpa } from '../core/present';
 import { wordList } from '../core/util/format';
 import { kpaText, numberText } from '../core/service/derived-hover';
 import type { Paint } from './colour';
+import type { Legend } from './render-legend';
 
-/** Where the timepoint's gas unit is kPa, gas pressures in kPa first: `P/F 28.2 kPa (212 mmHg)`. */
-export function renderDerived(tp: Timepoint, d: TimepointDerivation | undefined, p: Paint): string[] {
+/**
+ * Where the timepoint's gas unit is kPa, gas pressures in kPa first: `P/F 28.2 kPa (212 mmHg)`.
+ * The short names and marks written are noted in `legend`, which explains them once at the end.
+ */
+export function renderDerived(tp: Timepoint, d: TimepointDerivation | undefined, p: Paint, legend: Legend): string[] {
   if (!d) return [];
   const lines: string[] = [];
   const kpa = showsKpa(tp);
@@ -15,16 +19,20 @@ export function renderDerived(tp: Timepoint, d: TimepointDerivation | undefined,
   if (shown.length > 0) {
     const parts = shown.map((v) => {
       const number = numberText(v);
+      legend.value(v.id, kpa);
       // An estimate says so once: in its short name (`FiO2 est`) or by a mark after it.
-      const marks = `${v.estimate && !/\best\b/.test(v.short) ? ' est.' : ''}${v.usesCarried ? '*' : ''}`;
+      const estimateMark = v.estimate && !/\best\b/.test(v.short);
+      if (estimateMark) legend.mark('estimate');
+      if (v.usesCarried) legend.mark('carried');
+      const marks = `${estimateMark ? ' est.' : ''}${v.usesCarried ? '*' : ''}`;
       if (v.unit === 'mmHg' && kpa) {
         return `${v.short} ${p.bold(kpaText(v))} kPa (${number} mmHg)${marks}`;
       }
       return `${v.short} ${p.bold(number)}${v.unit ? ` ${v.unit}` : ''}${marks}`;
     });
     lines.push(`  ${p.green('derived'.padEnd(8))} ${parts.join(p.dim(' · '))}`);
-    if (shown.some((v) => v.usesCarried)) lines.push(`  ${' '.repeat(8)} ${p.dim('* uses a value carried from an earlier timepoint')}`);
   }
+  for (const m of d.missing) legend.value(m.id, kpa);
   for (const [needs, what] of groupMissing(d)) lines.push(`  ${p.dim('missing'.padEnd(8))} ${p.dim(`add ${needs} to get ${what.join(', ')}`)}`);
   for (const i of d.interpretations) lines.push(`  ${p.cyan('reading'.padEnd(8))} ${i.text}`);
   return lines;

@@ -1,7 +1,8 @@
 /**
  * `pneumark show`: the note as the core understood it — each timepoint, its lines with
  * normalised values and units, values carried in from earlier timepoints, and findings
- * under the line they belong to. Text from the note (the path, labels, prose, words, origins
+ * under the line they belong to; then a legend of the short names and marks used above (see
+ * render-legend.ts). Text from the note (the path, labels, prose, words, origins
  * and messages that quote the note) has its control characters made visible (see `visible`), so
  * that the only escape sequences written are the colours of `Paint`.
  */
@@ -17,6 +18,7 @@ import type { Finding } from '../core/types';
 import { CHECKS } from '../core/checks/registry';
 import type { Paint } from './colour';
 import { renderDerived } from './render-derived';
+import { Legend } from './render-legend';
 import { visible } from './visible';
 
 const READING_CODES = new Set(CHECKS.filter((c) => c.tags.includes('interpretation')).map((c) => c.code));
@@ -32,6 +34,7 @@ export function renderShow(path: string, result: NoteResult, p: Paint): string {
     if (list) list.push(f);
     else byLine.set(f.range.start.line, [f]);
   }
+  const legend = new Legend();
   const counts = countSeverities(findings);
   out.push(`${p.bold(visible(path))}  ${p.dim(`${analysis.timeline.timepoints.length} timepoint${analysis.timeline.timepoints.length === 1 ? '' : 's'}`)}  ${summary(counts, p)}`);
 
@@ -53,7 +56,10 @@ export function renderShow(path: string, result: NoteResult, p: Paint): string {
   for (const node of analysis.tree.lines) {
     const tp = tpByStart.get(node.line);
     if (tp) current = tp;
-    if (tp && tp.line === null) out.push('', p.bold(p.cyan('@ (start)')));
+    if (tp && tp.line === null) {
+      out.push('', p.bold(p.cyan('@ (start)')));
+      legend.mark('start');
+    }
     if (node.kind === 'timepoint') {
       out.push('', `${p.bold(p.cyan(`@ ${visible(node.time?.text ?? '?')}`))}${node.label ? `  ${visible(node.label.text)}` : ''}  ${p.dim(`line ${node.line + 1}`)}`);
     } else if (node.kind === 'section') {
@@ -62,19 +68,24 @@ export function renderShow(path: string, result: NoteResult, p: Paint): string {
         printedHeader = true;
       }
       const kpa = headerLines.has(node.line) ? headerShowsKpa(analysis.timeline) : showsKpa(current);
-      out.push(renderSectionLine(node, statedByLine.get(node.line) ?? [], kpa, p));
+      out.push(renderSectionLine(node, statedByLine.get(node.line) ?? [], kpa, p, legend));
     } else if (node.kind === 'unknown') {
       out.push(`  ${p.red('?')} ${visible(node.text.trim())}`);
+      legend.mark('unreadable-line');
     }
-    for (const f of byLine.get(node.line) ?? []) out.push(renderFinding(f, p));
+    for (const f of byLine.get(node.line) ?? []) {
+      out.push(renderFinding(f, p));
+      legend.mark('finding');
+    }
     const ending = tpByEnd.get(node.line);
-    if (ending) out.push(...renderTimepointFooter(ending, analysis.derivation(ending.index), p));
+    if (ending) out.push(...renderTimepointFooter(ending, analysis.derivation(ending.index), p, legend));
   }
+  out.push(...legend.lines(p));
   return out.join('\n');
 }
 
 /** A section line's values; where the gas unit in force is kPa (`kpa`), gas pressures in kPa first: `PaCO2 9.6 kPa (72 mmHg)`. */
-function renderSectionLine(node: Extract<LineNode, { kind: 'section' }>, stated: readonly StatedValue[], kpa: boolean, p: Paint): string {
+function renderSectionLine(node: Extract<LineNode, { kind: 'section' }>, stated: readonly StatedValue[], kpa: boolean, p: Paint, legend: Legend): string {
   const head = `  ${p.blue(visible(node.section).padEnd(8))}`;
   if (node.section === 'note') return `${head} ${p.dim(visible(node.prose?.text ?? ''))}`;
   const parts = stated.map((s) => {
@@ -83,6 +94,8 @@ function renderSectionLine(node: Extract<LineNode, { kind: 'section' }>, stated:
     // written in the likely unit (never a conversion from the unit it is doubted in).
     const alt = inKpa ? formatStated(s) : s.unitDoubt ? ifLikelyUnit(s) : s.unit !== 'fraction' ? formatAlternative(s) : null;
     const value = inKpa ?? (s.unitDoubt ? `${s.item.value?.text ?? ''} ?` : formatStated(s));
+    if (s.unitDoubt) legend.mark('unit-doubt');
+    if (!s.usable) legend.mark('not-used');
     const flag = s.usable ? '' : p.yellow(' (not used)');
     return `${shortOf(s.fieldId)} ${p.bold(visible(value))}${alt ? p.dim(` (${visible(alt)})`) : ''}${flag}`;
   });
@@ -106,7 +119,7 @@ export function ifLikelyUnit(s: StatedValue): string | null {
   return `if ${displayUnit(likely.id)}: ${inRead}${unit}`;
 }
 
-function renderTimepointFooter(tp: Timepoint, derivation: TimepointDerivation | undefined, p: Paint): string[] {
+function renderTimepointFooter(tp: Timepoint, derivation: TimepointDerivation | undefined, p: Paint, legend: Legend): string[] {
   const carried = [...tp.values.values()].filter((v) => v.origin.kind === 'carried');
   const lines: string[] = [];
   const groups = new Map<string, string[]>();
@@ -115,12 +128,13 @@ function renderTimepointFooter(tp: Timepoint, derivation: TimepointDerivation | 
     const list = groups.get(from) ?? [];
     const inKpa = showsKpa(tp) ? statedInKpa(v.stated) : null;
     // Marked as on the line it was stated on: a value not used there is not used where it carries to.
+    if (!v.stated.usable) legend.mark('not-used');
     const flag = v.stated.usable ? '' : p.yellow(' (not used)');
     list.push(`${shortOf(v.stated.fieldId)} ${visible(inKpa ? `${inKpa} (${formatStated(v.stated)})` : formatStated(v.stated))}${flag}`);
     groups.set(from, list);
   }
   for (const [from, values] of groups) lines.push(`  ${p.magenta('carried'.padEnd(8))} ${values.join(p.dim(' · '))} ${p.dim(`(${from})`)}`);
-  lines.push(...renderDerived(tp, derivation, p));
+  lines.push(...renderDerived(tp, derivation, p, legend));
   return lines;
 }
 
