@@ -243,7 +243,10 @@ function render(list: readonly TrendPoint[], note: string, closed: boolean): voi
     const opts: uPlot.Options = {
       width,
       height: 170,
-      cursor: { points: { size: hc ? 10 : 7 } },
+      // No zoom by dragging across the chart (uPlot's default): only a pointer could do it, only a
+      // double click undo it, the next analysis of the note undid it anyway, and a click that
+      // moved a little zoomed instead of going to the timepoint.
+      cursor: { points: { size: hc ? 10 : 7 }, drag: { x: false, y: false, setScale: false } },
       // The page's own legend (panelLegend) shows the values under the cursor.
       legend: { show: false },
       hooks: { setCursor: [(u) => legend?.showAt(u.cursor.idx ?? null)] },

@@ -70,7 +70,7 @@ describe.skipIf(!hasChromium)('the trend page in a browser', () => {
     await t.close();
   });
 
-  it('draws a note whose times go back by timepoint, with every point on the chart, and a click goes to the point under it', async () => {
+  it('draws a note whose times go back by timepoint, with every point on the chart, a click goes to the point under it and a drag zooms nothing', async () => {
     const t = await openTrendPage();
     // 10:00, 09:00 (earlier: PN308), 11:00, 11:00, 11:40.
     const points = [600, 540, 660, 660, 700].map((m, i) => point(i, `tp ${i + 1}`, m));
@@ -82,6 +82,13 @@ describe.skipIf(!hasChromium)('the trend page in a browser', () => {
     // Timepoints 1…5 across the width: the middle is the third.
     await t.page.mouse.click(box.x + box.width / 2, box.y + box.height / 2);
     expect((await t.posted()).at(-1)).toEqual({ type: 'reveal', line: points[2]!.line });
+    // A drag across it does not zoom (the keyboard could not, nor undo it): the left edge is still the first timepoint.
+    await t.page.mouse.move(box.x + box.width * 0.2, box.y + box.height / 2);
+    await t.page.mouse.down();
+    await t.page.mouse.move(box.x + box.width * 0.7, box.y + box.height / 2, { steps: 5 });
+    await t.page.mouse.up();
+    await t.page.mouse.move(box.x + 2, box.y + box.height / 2);
+    expect(await t.page.locator('.legend .at .value').first().innerText()).toBe('tp 1');
     expect(t.problems).toEqual([]);
     await t.close();
   });
