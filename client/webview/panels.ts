@@ -168,3 +168,29 @@ export function timepointTable(points: readonly TrendPoint[]): TimepointTable {
     })),
   };
 }
+
+/**
+ * The legend of a panel is a row of toggles, one per series, that show or hide its line. Each is
+ * named by what pressing it does, with the series' label as written under the chart (so a voice
+ * command that says the visible label reaches it), and is pressed while the line is shown:
+ * "Show the PaO2 line, toggle button, pressed". The name stays the same whatever the state.
+ */
+export function toggleName(label: string): string {
+  return `Show the ${label} line`;
+}
+
+/** The name of a panel's group of toggles. */
+export function legendName(title: string): string {
+  return `Lines shown in the ${title} chart`;
+}
+
+/**
+ * The series whose toggle takes the keyboard focus after a redraw, when the focus was on the
+ * toggle of `key` in the panel titled `title`: the same series when it is still drawn, else the
+ * first series of that panel, else the first of any panel; null when no panel is drawn.
+ */
+export function toggleAfterRedraw(key: TrendSeries, title: string, layouts: readonly PanelLayout[]): TrendSeries | null {
+  for (const p of layouts) if (p.series.some((s) => s.key === key)) return key;
+  const same = layouts.find((p) => p.title === title);
+  return (same ?? layouts[0])?.series[0]?.key ?? null;
+}

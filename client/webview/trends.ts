@@ -6,12 +6,18 @@
  * or kPa). Clicking a chart moves the editor to the timepoint under the cursor; below the charts
  * a table of the same values has a button per timepoint, so the keyboard and screen readers
  * reach every timepoint too.
+ *
+ * The chart itself (canvas, axes, cursor) is hidden from screen readers, which are pointed to the
+ * table. Its legend is not uPlot's (a table inside the hidden chart, toggled by clicks only): it is
+ * the page's own row of toggle buttons beside the chart, outside the hidden part, reached with
+ * Tab and pressed with Enter or Space like any button, each pressed while its line is shown. The
+ * values under the mouse it shows beside them are for the eye only (the table has them).
  */
 import uPlot from 'uplot';
-import type { TrendPoint } from '../../server/src/protocol';
+import type { TrendPoint, TrendSeries } from '../../server/src/protocol';
 import { toWebview, type FromWebview, type ToWebview, type TrendViewState } from './messages';
 import { shownEscaped, wordList } from '../../server/src/core/util/format';
-import { emptyMessage, legendText, panelLayouts, seriesDash, timepointTable, xAxis } from './panels';
+import { emptyMessage, legendName, legendText, panelLayouts, seriesDash, timepointTable, toggleAfterRedraw, toggleName, xAxis, type PanelLayout } from './panels';
 
 interface VsCodeApi {
   postMessage(message: FromWebview): void;
@@ -58,12 +64,23 @@ function paragraph(className: string, text: string): HTMLParagraphElement {
 }
 
 /** The control of the page that has the keyboard focus, to put it back once the page is redrawn. */
-type FocusedControl = { readonly kind: 'row'; readonly index: number } | { readonly kind: 'all-rows' };
+type FocusedControl =
+  | { readonly kind: 'row'; readonly index: number }
+  | { readonly kind: 'all-rows' }
+  | { readonly kind: 'table' }
+  | { readonly kind: 'series'; readonly key: TrendSeries; readonly panel: string };
 
 function focusedControl(): FocusedControl | null {
   const el = document.activeElement;
-  if (!(el instanceof HTMLButtonElement) || !document.getElementById('charts')?.contains(el)) return null;
+  const main = document.getElementById('charts');
+  if (!(el instanceof HTMLElement) || !main?.contains(el)) return null;
+  if (el.matches('section.values')) return { kind: 'table' };
+  if (!(el instanceof HTMLButtonElement)) return null;
   if (el.classList.contains('all-rows')) return { kind: 'all-rows' };
+  if (el.classList.contains('series-toggle')) {
+    const key = el.dataset.series as TrendSeries;
+    return { kind: 'series', key, panel: el.closest('section.panel')?.querySelector('h2')?.textContent ?? '' };
+  }
   const index = Number(el.dataset.index);
   return el.classList.contains('go') && Number.isInteger(index) ? { kind: 'row', index } : null;
 }
@@ -71,18 +88,103 @@ function focusedControl(): FocusedControl | null {
 /**
  * Focuses the control that had the focus before the page was redrawn (a redraw replaces every
  * element): the same timepoint's button, else the nearest one before it, else the first; the
- * "Show all" button, else the first timepoint's. Without this a redraw (a new analysis, the note
- * closing, a theme change) would drop a keyboard user's focus to the top of the page.
+ * "Show all" button, else the first timepoint's; the same series' toggle in the legend, else the
+ * one `toggleAfterRedraw` picks; the table's scrolling region when it still scrolls. Without this a
+ * redraw (a new analysis, the note closing, a theme change) would drop a keyboard user's focus to
+ * the top of the page.
  */
-function restoreFocus(f: FocusedControl | null): void {
+function restoreFocus(f: FocusedControl | null, layouts: readonly PanelLayout[]): void {
   const main = document.getElementById('charts');
   if (!f || !main) return;
   const buttons = main.querySelectorAll<HTMLButtonElement>('button.go');
-  let target: HTMLButtonElement | null = f.kind === 'all-rows' ? main.querySelector<HTMLButtonElement>('button.all-rows') : null;
+  let target: HTMLElement | null = null;
+  if (f.kind === 'all-rows') target = main.querySelector<HTMLButtonElement>('button.all-rows');
+  if (f.kind === 'table') target = main.querySelector<HTMLElement>('section.values[tabindex]');
   if (f.kind === 'row') {
     for (const b of buttons) if (Number(b.dataset.index) <= f.index) target = b;
   }
+  if (f.kind === 'series') {
+    const key = toggleAfterRedraw(f.key, f.panel, layouts);
+    for (const b of main.querySelectorAll<HTMLButtonElement>('button.series-toggle')) if (b.dataset.series === key) target = b;
+  }
   (target ?? buttons[0] ?? null)?.focus();
+}
+
+/** Series the reader has hidden with the legend's toggles: still hidden after a redraw, and in another note. */
+const hiddenSeries = new Set<TrendSeries>();
+
+function span(className: string, text: string): HTMLSpanElement {
+  const el = document.createElement('span');
+  el.className = className;
+  el.textContent = text;
+  return el;
+}
+
+/**
+ * A panel's legend, below its chart and outside the part hidden from screen readers: what the x
+ * values are and the label of the point under the mouse, then per series a sample of its line and
+ * its label in a toggle button that shows or hides the line (pressed while shown), and its value
+ * under the mouse. The values are for the eye (hidden from screen readers: the table has them);
+ * `showAt` writes those of a point, or dashes for none.
+ */
+function panelLegend(panel: PanelLayout, chart: uPlot, lineWidth: number, hours: boolean): { element: HTMLElement; showAt(idx: number | null): void } {
+  const box = document.createElement('div');
+  box.className = 'legend';
+  box.setAttribute('role', 'group');
+  box.setAttribute('aria-label', legendName(panel.title));
+  const at = span('at', '');
+  at.setAttribute('aria-hidden', 'true');
+  const atValue = span('value', '—');
+  at.append(span('label', hours ? 'hour' : '#'), atValue);
+  box.append(at);
+  const values = panel.series.map((s, position) => {
+    const item = span('item', '');
+    const button = document.createElement('button');
+    button.type = 'button';
+    button.className = 'series-toggle';
+    button.dataset.series = s.key;
+    button.setAttribute('aria-label', toggleName(s.label));
+    const marker = span('marker', '');
+    marker.setAttribute('aria-hidden', 'true');
+    marker.style.borderTop = `${lineWidth}px ${seriesDash(position, lineWidth).border} ${themeColour(s.colour)}`;
+    button.append(marker, span('label', s.label));
+    const value = span('value', '—');
+    value.setAttribute('aria-hidden', 'true');
+    const shown = (show: boolean) => {
+      button.setAttribute('aria-pressed', String(show));
+      item.classList.toggle('off', !show);
+    };
+    shown(!hiddenSeries.has(s.key));
+    button.addEventListener('click', () => {
+      const show = hiddenSeries.has(s.key);
+      if (show) hiddenSeries.delete(s.key);
+      else hiddenSeries.add(s.key);
+      shown(show);
+      chart.setSeries(position + 1, { show });
+    });
+    item.append(button, value);
+    box.append(item);
+    return value;
+  });
+  const xs = chart.data[0];
+  return {
+    element: box,
+    showAt(idx) {
+      atValue.textContent = labelAt(idx === null ? null : (xs[idx] ?? null), idx);
+      values.forEach((v, i) => { v.textContent = legendText(idx === null ? null : (panel.columns[i]?.[idx] ?? null), panel.series[i]!.unit); });
+    },
+  };
+}
+
+/**
+ * The values table scrolls sideways when it is wider than the view (many series, a narrow
+ * panel): then its region takes the focus, so that the arrow keys scroll it (its buttons, in its
+ * first column, would not); otherwise it is no stop of the Tab key.
+ */
+function scrollableByKeyboard(section: Element | null): void {
+  if (!(section instanceof HTMLElement)) return;
+  if (section.scrollWidth > section.clientWidth) section.tabIndex = 0;
+  else section.removeAttribute('tabindex');
 }
 
 /** What the status line last said (it speaks only when that changes). */
@@ -125,7 +227,8 @@ function render(list: readonly TrendPoint[], note: string, closed: boolean): voi
   const grid = cssVar('--vscode-editorWidget-border', cssVar('--vscode-panel-border', 'rgba(128,128,128,0.3)'));
   const hc = highContrast();
   const width = Math.max(280, main.clientWidth - 8);
-  for (const panel of panelLayouts(list)) {
+  const layouts = panelLayouts(list);
+  for (const panel of layouts) {
     const section = document.createElement('section');
     section.className = 'panel';
     section.setAttribute('aria-label', panel.name);
@@ -136,12 +239,17 @@ function render(list: readonly TrendPoint[], note: string, closed: boolean): voi
     const data: uPlot.AlignedData = [xs, ...panel.columns];
     const lineWidth = hc ? 3 : 2;
     const axisStyle = { stroke: fg, grid: { stroke: grid, width: 1 }, ticks: { stroke: grid, width: 1 } };
+    let legend: ReturnType<typeof panelLegend> | null = null;
     const opts: uPlot.Options = {
       width,
       height: 170,
-      cursor: { points: { size: hc ? 10 : 7 } },
-      // The legend's marker of each series: a sample of its line, dashed or dotted as it is.
-      legend: { live: true, markers: { width: lineWidth, dash: (_u, i) => (i > 0 ? seriesDash(i - 1, lineWidth).border : 'solid') } },
+      // No zoom by dragging across the chart (uPlot's default): only a pointer could do it, only a
+      // double click undo it, the next analysis of the note undid it anyway, and a click that
+      // moved a little zoomed instead of going to the timepoint.
+      cursor: { points: { size: hc ? 10 : 7 }, drag: { x: false, y: false, setScale: false } },
+      // The page's own legend (panelLegend) shows the values under the cursor.
+      legend: { show: false },
+      hooks: { setCursor: [(u) => legend?.showAt(u.cursor.idx ?? null)] },
       scales: { x: { time: false }, y: {}, ...(panel.rightLabel !== null ? { r: {} } : {}) },
       axes: [
         { ...axisStyle, label: hours ? 'hours since day 1 00:00' : 'timepoint' },
@@ -149,25 +257,26 @@ function render(list: readonly TrendPoint[], note: string, closed: boolean): voi
         ...(panel.rightLabel !== null ? [{ ...axisStyle, label: panel.rightLabel, scale: 'r', side: 1 as const, grid: { show: false } }] : []),
       ],
       series: [
-        // The label of the point under the cursor, by its index: two timepoints may share a time.
-        { label: hours ? 'hour' : '#', value: (_u, v, _s, idx) => labelAt(v, idx) },
+        { label: hours ? 'hour' : '#' },
         ...panel.series.map((s, position) => ({
           label: s.label,
           scale: s.axis === 1 ? 'r' : 'y',
+          show: !hiddenSeries.has(s.key),
           stroke: themeColour(s.colour),
           width: lineWidth,
           dash: seriesDash(position, lineWidth).segments,
           spanGaps: true,
           points: { show: true, size: hc ? 8 : 5, fill: themeColour(s.colour) },
-          value: (_u: uPlot, v: number | null) => legendText(v, s.unit),
         })),
       ],
     };
     const chart = new uPlot(opts, data, section);
-    // The chart is a picture, and its legend a table of the values under the mouse: hidden from
-    // screen readers, which are told where the same values are.
+    // The chart is a picture: hidden from screen readers, which are told where the same values
+    // are. It holds no control: its legend's toggles come after it, outside it.
     chart.root.setAttribute('aria-hidden', 'true');
     section.append(paragraph('visually-hidden', `${wordList(panel.series.map((s) => s.label))} by ${hours ? 'hour' : 'timepoint'}: a chart, its values in the table "Values by timepoint" below.`));
+    legend = panelLegend(panel, chart, lineWidth, hours);
+    section.append(legend.element);
     chart.over.addEventListener('click', () => {
       const idx = chart.cursor.idx;
       if (idx === null || idx === undefined) return;
@@ -177,7 +286,8 @@ function render(list: readonly TrendPoint[], note: string, closed: boolean): voi
     charts.push(chart);
   }
   main.append(table(list));
-  restoreFocus(focused);
+  scrollableByKeyboard(main.querySelector('section.values'));
+  restoreFocus(focused, layouts);
 }
 
 /**
@@ -247,6 +357,7 @@ function table(list: readonly TrendPoint[]): HTMLElement {
       allRowsFor = lastUri;
       const whole = table(list);
       section.replaceWith(whole);
+      scrollableByKeyboard(whole);
       // The button is gone with the section it was in: the focus goes to the first timepoint.
       whole.querySelector<HTMLButtonElement>('button.go')?.focus();
     });
@@ -257,6 +368,7 @@ function table(list: readonly TrendPoint[]): HTMLElement {
   return section;
 }
 
+/** The label of the point at `idx` (by its index: two timepoints may share a time), else its x value. */
 function labelAt(x: number | null, idx: number | null): string {
   const p = idx === null ? undefined : points[idx];
   return p ? shownEscaped(p.label) : x === null ? '—' : String(x);
@@ -319,6 +431,7 @@ window.addEventListener('resize', () => {
     const main = document.getElementById('charts');
     const width = Math.max(280, (main?.clientWidth ?? 300) - 8);
     for (const c of charts) c.setSize({ width, height: 170 });
+    scrollableByKeyboard(document.querySelector('section.values'));
   }, 100);
 });
 

@@ -100,7 +100,7 @@ describe('Pneumark in VS Code', () => {
     };
     expect(await texts('.panel h2')).toEqual(expect.arrayContaining(['Oxygenation', 'Carbon dioxide and pH', 'Saturation and FiO2', 'Ventilator']));
     expect((await texts('#title')).join()).toMatch(/icu-ventilated-lung-injury\.pneu/);
-    const legend = (await texts('.u-legend .u-label')).join(' ');
+    const legend = (await texts('.legend .label')).join(' ');
     for (const series of ['PaO2', 'P/F', 'PaCO2', 'pH', 'SpO2', 'FiO2', 'PEEP', 'ΔP', 'Cstat']) expect(legend).toContain(series);
     // The panels name the units of their axes (drawn on the canvas): this note's gases are in mmHg.
     expect(await panelNames()).toEqual(expect.arrayContaining(['Oxygenation (mmHg)', 'Carbon dioxide and pH (mmHg, pH)', 'Saturation and FiO2 (%)']));
@@ -128,7 +128,7 @@ describe('Pneumark in VS Code', () => {
     const frame = await frameWith('section.panel[aria-label="Oxygenation (kPa)"]');
     const oxygenation = frame.locator('section.panel[aria-label="Oxygenation (kPa)"]');
     await oxygenation.locator('.u-over').hover();
-    await expect.poll(async () => (await oxygenation.locator('.u-legend .u-value').allTextContents()).join(' '), { timeout: 20000 }).toMatch(/\d+(\.\d)? kPa \d+(\.\d)? kPa$/);
+    await expect.poll(async () => (await oxygenation.locator('.legend .value').allTextContents()).join(' '), { timeout: 20000 }).toMatch(/\d+(\.\d)? kPa \d+(\.\d)? kPa$/);
     await screenshot(wb.page, '10-trends-kpa');
   });
 

@@ -33,7 +33,7 @@ describe.skipIf(!hasChromium)('the trend page in a browser', () => {
     const over = t.page.locator('.u-over').first();
     const box = (await over.boundingBox())!;
     await t.page.mouse.move(box.x + box.width * 0.6, box.y + box.height / 2);
-    expect(await t.page.locator('.u-legend').first().innerText()).toContain('a\\u{202E}exe.pdf');
+    expect(await t.page.locator('.legend').first().innerText()).toContain('a\\u{202E}exe.pdf');
     await t.send({ type: 'error', message: '<img src=x onerror=alert(5)>' });
     expect(await text(t, '#charts')).toBe('Trends could not be loaded: <img src=x onerror=alert(5)>');
     await t.send({ type: 'notice', message: '<svg onload=alert(6)>' });
@@ -70,18 +70,25 @@ describe.skipIf(!hasChromium)('the trend page in a browser', () => {
     await t.close();
   });
 
-  it('draws a note whose times go back by timepoint, with every point on the chart, and a click goes to the point under it', async () => {
+  it('draws a note whose times go back by timepoint, with every point on the chart, a click goes to the point under it and a drag zooms nothing', async () => {
     const t = await openTrendPage();
     // 10:00, 09:00 (earlier: PN308), 11:00, 11:00, 11:40.
     const points = [600, 540, 660, 660, 700].map((m, i) => point(i, `tp ${i + 1}`, m));
     await t.send(trends(points));
     // The legend names the x values: timepoint numbers (`#`), not hours.
-    expect(await t.page.locator('.u-legend .u-label').first().innerText()).toBe('#');
+    expect(await t.page.locator('.legend .at .label').first().innerText()).toBe('#');
     const over = t.page.locator('.u-over').first();
     const box = (await over.boundingBox())!;
     // Timepoints 1…5 across the width: the middle is the third.
     await t.page.mouse.click(box.x + box.width / 2, box.y + box.height / 2);
     expect((await t.posted()).at(-1)).toEqual({ type: 'reveal', line: points[2]!.line });
+    // A drag across it does not zoom (the keyboard could not, nor undo it): the left edge is still the first timepoint.
+    await t.page.mouse.move(box.x + box.width * 0.2, box.y + box.height / 2);
+    await t.page.mouse.down();
+    await t.page.mouse.move(box.x + box.width * 0.7, box.y + box.height / 2, { steps: 5 });
+    await t.page.mouse.up();
+    await t.page.mouse.move(box.x + 2, box.y + box.height / 2);
+    expect(await t.page.locator('.legend .at .value').first().innerText()).toBe('tp 1');
     expect(t.problems).toEqual([]);
     await t.close();
   });
@@ -119,9 +126,8 @@ describe.skipIf(!hasChromium)('the trend page in a browser', () => {
     const points = Array.from({ length: 4 }, (_, i) => point(i, `tp ${i + 1}`, i * 60));
     await t.send(trends(points));
     const focused = () => t.page.evaluate('document.activeElement?.textContent') as Promise<string | null>;
-    await t.page.keyboard.press('Tab');
-    await t.page.keyboard.press('Tab');
-    await t.page.keyboard.press('Tab');
+    // Past the toggles of the two charts' legends (PaO2, pH), the table's buttons.
+    for (let i = 0; i < 5; i++) await t.page.keyboard.press('Tab');
     expect(await focused()).toBe('tp 3');
     // A new analysis of the note, the note closing, a theme change: each redraws the page.
     await t.send(trends(points));
@@ -151,15 +157,86 @@ describe.skipIf(!hasChromium)('the trend page in a browser', () => {
     await t.close();
   }, 60_000);
 
+  it('shows and hides a line from the keyboard with its legend toggle, and keeps the focus on it when the page is redrawn', async () => {
+    // PaO2 drawn in a colour seen nowhere else, to count its pixels; a focus colour of its own.
+    const t = await openTrendPage({ initScript: `addEventListener('DOMContentLoaded', () => { document.documentElement.style.cssText = '--vscode-charts-blue: #ff00ff; --vscode-focusBorder: #00c000'; });` });
+    const points = Array.from({ length: 4 }, (_, i) => point(i, `tp ${i + 1}`, i * 60));
+    await t.send(trends(points));
+    const pao2Pixels = `(() => { const c = document.querySelector('section.panel canvas'); const d = c.getContext('2d').getImageData(0, 0, c.width, c.height).data; let n = 0; for (let i = 0; i < d.length; i += 4) if (d[i] > 200 && d[i + 1] < 80 && d[i + 2] > 200) n++; return n; })()`;
+    const focused = () => t.page.evaluate(`(() => { const el = document.activeElement; return el ? el.getAttribute('aria-label') + ' ' + el.getAttribute('aria-pressed') : null; })()`) as Promise<string | null>;
+    expect(await t.page.evaluate(pao2Pixels)).toBeGreaterThan(20);
+    // The first stop of the Tab key: the first chart's first toggle, a button named by what it does, pressed while its line is shown.
+    await t.page.keyboard.press('Tab');
+    expect(await focused()).toBe('Show the PaO2 line true');
+    const toggle = t.page.getByRole('button', { name: 'Show the PaO2 line' });
+    expect(await toggle.evaluate((el) => el.tagName)).toBe('BUTTON');
+    // Its focus ring is drawn in the theme's focus colour.
+    expect(await t.page.evaluate(`(() => { const s = getComputedStyle(document.activeElement); return [document.activeElement.matches(':focus-visible'), s.outlineStyle, s.outlineColor]; })()`)).toEqual([true, 'solid', 'rgb(0, 192, 0)']);
+    await t.page.keyboard.press('Space');
+    await until(t.page, `${pao2Pixels} === 0`);
+    expect(await focused()).toBe('Show the PaO2 line false');
+    expect(await t.page.locator('section.panel .legend .item.off .label').allInnerTexts()).toEqual(['PaO2']);
+    // A new analysis redraws the page: the line stays hidden, the toggle says so and keeps the focus.
+    await t.send(trends(points));
+    expect(await focused()).toBe('Show the PaO2 line false');
+    expect(await t.page.evaluate(pao2Pixels)).toBe(0);
+    expect(await t.page.evaluate(`document.activeElement.matches(':focus-visible')`)).toBe(true);
+    await t.page.keyboard.press('Enter');
+    await until(t.page, `${pao2Pixels} > 20`);
+    expect(await focused()).toBe('Show the PaO2 line true');
+    // The next stop: the toggle of the next chart's line; the mouse presses toggles too.
+    await t.page.keyboard.press('Tab');
+    expect(await focused()).toBe('Show the pH line true');
+    await t.page.getByRole('button', { name: 'Show the PaO2 line' }).click();
+    expect(await t.page.getByRole('button', { name: 'Show the PaO2 line', pressed: false }).count()).toBe(1);
+    // A theme change redraws too; then the series goes from the note: the focus goes to the toggle of a line still drawn.
+    await t.page.evaluate(`window.__was = document.activeElement; document.body.classList.add('vscode-light')`);
+    await until(t.page, `document.activeElement !== window.__was`);
+    expect(await focused()).toBe('Show the PaO2 line false');
+    await t.send(trends(points.map((p) => ({ ...p, values: { ph: p.values.ph! } }))));
+    expect(await focused()).toBe('Show the pH line true');
+    // Nothing that takes the focus is inside a part hidden from screen readers.
+    expect(await t.page.locator('[aria-hidden="true"] :is(button, a[href], input, select, textarea, [tabindex])').count()).toBe(0);
+    expect(t.problems).toEqual([]);
+    await t.close();
+  }, 60_000);
+
+  it('lets the keyboard scroll the table sideways when it is wider than the view, and only then', async () => {
+    const all = (i: number): TrendPoint => ({ timepoint: i + 1, label: `tp ${i + 1}`, line: i, minutes: i * 60, carried: [], values: {
+      pao2: { value: 70, unit: 'mmHg' }, pf_ratio: { value: 175, unit: 'mmHg' }, paco2: { value: 48, unit: 'mmHg' }, ph: { value: 7.31, unit: 'pH' }, spo2: { value: 92, unit: '%' },
+      fio2: { value: 40, unit: '%' }, peep: { value: 8, unit: 'cmH2O' }, driving_pressure: { value: 14, unit: 'cmH2O' }, compliance_static: { value: 30, unit: 'mL/cmH2O' } } });
+    const t = await openTrendPage({ width: 320, initScript: `addEventListener('DOMContentLoaded', () => { document.documentElement.style.cssText = '--vscode-focusBorder: #00c000'; });` });
+    await t.send(trends([all(0), all(1)]));
+    const values = t.page.locator('section.values');
+    expect(await values.evaluate((el) => el.scrollWidth > el.clientWidth)).toBe(true);
+    // Past the nine legend toggles, the table's region: a stop of the Tab key, named, with a focus ring.
+    for (let i = 0; i < 10; i++) await t.page.keyboard.press('Tab');
+    expect(await t.page.evaluate(`document.activeElement.matches('section.values')`)).toBe(true);
+    expect(await values.getAttribute('aria-label')).toBe('Values by timepoint');
+    expect(await t.page.evaluate(`getComputedStyle(document.activeElement).outlineColor`)).toBe('rgb(0, 192, 0)');
+    await t.page.keyboard.press('ArrowRight');
+    await until(t.page, `document.querySelector('section.values').scrollLeft > 0`);
+    // Still the focused region after a redraw; once the view is wide enough, no stop at all.
+    await t.send(trends([all(0), all(1)]));
+    expect(await t.page.evaluate(`document.activeElement.matches('section.values')`)).toBe(true);
+    await t.page.setViewportSize({ width: 1400, height: 800 });
+    await until(t.page, `!document.querySelector('section.values').hasAttribute('tabindex')`);
+    expect(t.problems).toEqual([]);
+    await t.close();
+  });
+
   it('gives screen readers the table for the charts, and says what it shows once, not at every analysis', async () => {
     // Records what the status line says: each change of its text is read out.
     const t = await openTrendPage({ initScript: `window.__said = []; addEventListener('DOMContentLoaded', () => new MutationObserver(() => window.__said.push(document.getElementById('announce').textContent)).observe(document.getElementById('announce'), { childList: true, characterData: true, subtree: true }));` });
     const points = Array.from({ length: 3 }, (_, i) => point(i, `tp ${i + 1}`, i * 60));
     await t.send(trends(points));
     const main = await t.page.locator('main').ariaSnapshot();
-    // Each chart is out of the accessibility tree (its canvas and the legend's table of the values
-    // under the mouse), its region named, with a heading and a pointer to the table.
-    expect(main).toContain('- region "Oxygenation (mmHg)":\n    - heading "Oxygenation" [level=2]\n    - paragraph: "PaO2 by hour: a chart, its values in the table \\"Values by timepoint\\" below."');
+    // Each chart is out of the accessibility tree (its canvas, axes and cursor), its region named,
+    // with a heading and a pointer to the table; its legend's toggles come after it, outside it,
+    // as a named group of toggle buttons (the values under the mouse beside them are for the eye).
+    expect(main).toContain('- region "Oxygenation (mmHg)":\n    - heading "Oxygenation" [level=2]\n    - paragraph: "PaO2 by hour: a chart, its values in the table \\"Values by timepoint\\" below."\n'
+      + '    - group "Lines shown in the Oxygenation chart":\n      - button "Show the PaO2 line" [pressed]: PaO2\n  - region');
+    expect(await t.page.locator('.uplot button, .uplot [tabindex]').count()).toBe(0);
     expect(await t.page.getByRole('table').count()).toBe(1);
     expect(await t.page.locator('.uplot').first().getAttribute('aria-hidden')).toBe('true');
     const table = t.page.getByRole('table', { name: /moves the editor/ });
@@ -193,7 +270,7 @@ describe.skipIf(!hasChromium)('the trend page in a browser', () => {
     const vent = (i: number): TrendPoint => ({ timepoint: i + 1, label: `tp ${i + 1}`, line: i, minutes: i * 60, carried: [],
       values: { peep: { value: 8, unit: 'cmH2O' }, driving_pressure: { value: 14 + i, unit: 'cmH2O' }, compliance_static: { value: 30 - i, unit: 'mL/cmH2O' } } });
     await t.send(trends([vent(0), vent(1), vent(2)]));
-    const markers = `[...document.querySelectorAll('section.panel .u-legend .u-series')].slice(1).map((row) => { const m = getComputedStyle(row.querySelector('.u-marker')); return row.querySelector('.u-label').textContent + ' ' + m.borderTopStyle + ' ' + m.borderTopWidth + ' ' + m.borderBottomWidth; })`;
+    const markers = `[...document.querySelectorAll('section.panel .legend .item')].map((row) => { const m = getComputedStyle(row.querySelector('.marker')); return row.querySelector('.label').textContent + ' ' + m.borderTopStyle + ' ' + m.borderTopWidth + ' ' + m.borderBottomWidth; })`;
     // The legend's sample of each line: PEEP solid, ΔP dashed, Cstat dotted (only its top border drawn).
     expect(await t.page.evaluate(markers)).toEqual(['PEEP solid 2px 0px', 'ΔP dashed 2px 0px', 'Cstat dotted 2px 0px']);
     await t.page.evaluate(`window.__was = document.querySelector('.uplot'); document.body.classList.add('vscode-high-contrast')`);

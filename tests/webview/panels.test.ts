@@ -2,7 +2,7 @@
 // the points give them (the page converts nothing). Points are written by hand here; what the
 // core gives for a note is tested in tests/core/trends.test.ts.
 import { describe, expect, it } from 'vitest';
-import { emptyMessage, legendText, PANELS, panelLayouts, seriesDash, timepointTable, xAxis } from '../../client/webview/panels';
+import { emptyMessage, legendName, legendText, PANELS, panelLayouts, seriesDash, timepointTable, toggleAfterRedraw, toggleName, xAxis } from '../../client/webview/panels';
 import type { TrendPoint } from '../../server/src/protocol';
 
 function point(values: TrendPoint['values'], line = 0): TrendPoint {
@@ -64,6 +64,28 @@ describe('when there is nothing to draw', () => {
     const message = emptyMessage([point({}), point({}, 4)]);
     expect(message).toMatch(/^No values to plot yet: the trend view draws PaO2, P\/F, PaCO2, pH, SpO2, FiO2, PEEP, ΔP and Cstat/);
     expect(emptyMessage(kpaPoints)).toBeNull();
+  });
+});
+
+describe('the legend\'s toggles', () => {
+  it('are named by what pressing them does, with the label written under the chart in the name, one name per series', () => {
+    const labels = PANELS.flatMap((p) => p.series.map((s) => s.label));
+    const names = labels.map(toggleName);
+    expect(toggleName('PaO2')).toBe('Show the PaO2 line');
+    names.forEach((name, i) => expect(name).toContain(labels[i]));
+    expect(new Set(names).size).toBe(names.length);
+    expect(legendName('Oxygenation')).toBe('Lines shown in the Oxygenation chart');
+  });
+
+  it('keep the focus on the same series after a redraw, else on the first of its panel, else on the first drawn', () => {
+    const layouts = panelLayouts(kpaPoints);
+    expect(toggleAfterRedraw('pf_ratio', 'Oxygenation', layouts)).toBe('pf_ratio');
+    // PaO2 gone from the note: P/F, the first series of the Oxygenation panel now.
+    const noPao2 = panelLayouts(kpaPoints.map((p) => ({ ...p, values: { ...p.values, pao2: undefined } })));
+    expect(toggleAfterRedraw('pao2', 'Oxygenation', noPao2)).toBe('pf_ratio');
+    // The whole Ventilator panel gone: the first series drawn.
+    expect(toggleAfterRedraw('peep', 'Ventilator', layouts)).toBe('pao2');
+    expect(toggleAfterRedraw('peep', 'Ventilator', [])).toBeNull();
   });
 });
 
