@@ -107,9 +107,13 @@ export class ConfigWatcher {
     this.log = options.log ?? (() => undefined);
   }
 
-  /** Sets the folders `owner` (a note) needs watched, in place of those it needed before. */
-  need(owner: string, dirs: readonly string[]): void {
+  /**
+   * Sets the folders `owner` (a note) needs watched, in place of those it needed before. True when
+   * a watch started: what was read in that folder before it may have changed since.
+   */
+  need(owner: string, dirs: readonly string[]): boolean {
     const before = this.owned.get(owner) ?? [];
+    let started = false;
     for (const dir of dirs) {
       let watched = this.dirs.get(dir);
       if (!watched) {
@@ -117,11 +121,12 @@ export class ConfigWatcher {
         this.dirs.set(dir, watched);
       }
       watched.owners.add(owner);
-      if (!watched.handle) this.start(dir, watched);
+      if (!watched.handle) started = this.start(dir, watched) || started;
     }
     for (const dir of before) if (!dirs.includes(dir)) this.drop(owner, dir);
     if (dirs.length > 0) this.owned.set(owner, dirs);
     else this.owned.delete(owner);
+    return started;
   }
 
   /** `owner` needs no folder any more (its note is closed). */
@@ -154,15 +159,17 @@ export class ConfigWatcher {
     this.timer = null;
   }
 
-  private start(dir: string, watched: Watched): void {
+  private start(dir: string, watched: Watched): boolean {
     try {
       watched.identity = this.identity(dir);
       const handle = this.watch(dir, (_event, filename) => this.heard(dir, handle, filename));
       handle.on('error', (error) => this.lost(dir, handle, reasonOf(error)));
       watched.handle = handle;
+      return true;
     } catch (error) {
       watched.handle = null;
       this.logOnce(dir, reasonOf(error));
+      return false;
     }
   }
 

@@ -300,11 +300,18 @@ export function startServer(connection: Connection, collector: IdleCollector = n
    */
   const watcher = new ConfigWatcher(() => guard('project file change', undefined, recheckConfigs)(undefined), { log: (m) => connection.console.warn(m) });
 
-  /** Watches the folders outside the workspace whose project file would apply to the note. */
-  function watchFoldersOf(uri: string, found: FoundConfig | null): void {
+  /**
+   * Watches the folders outside the workspace whose project file would apply to the note (`found`
+   * is what was read there), and gives the project file that applies. A file made in a folder
+   * between the lookup and the start of its watch would go unnoticed: so when a watch starts,
+   * the folders are looked at once more.
+   */
+  function watchFoldersOf(uri: string, found: FoundConfig | null): FoundConfig | null {
     const path = notePathOf(uri);
-    if (path === null) return;
-    watcher.need(uri, foldersToWatch(path, found?.path ?? null, workspaceFolders));
+    if (path === null || !watcher.need(uri, foldersToWatch(path, found?.path ?? null, workspaceFolders))) return found;
+    const again = configs.forPath(path, true);
+    if (configKey(again) !== configKey(found)) watcher.need(uri, foldersToWatch(path, again?.path ?? null, workspaceFolders));
+    return again;
   }
 
   /**
@@ -328,8 +335,7 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     for (const uri of uris) {
       const state = notes.get(uri);
       if (!state) continue;
-      const found = configs.forNote(uri, fresh);
-      watchFoldersOf(uri, found);
+      const found = watchFoldersOf(uri, configs.forNote(uri, fresh));
       // Before its first analysis a note has read nothing yet: that analysis reads the file as it is.
       if (state.analysedConfig === undefined || configKey(found) === configKey(state.analysedConfig)) continue;
       changed = true;
