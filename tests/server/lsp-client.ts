@@ -36,6 +36,7 @@ export interface LspClient {
   stderr: string;
   open(path: string, text: string, version?: number): string;
   change(uri: string, text: string, version: number): void;
+  save(uri: string): void;
   /** Resolves with the first diagnostics for `uri` matching `accept` (already received or future). */
   diagnostics(uri: string, accept?: (p: PublishDiagnosticsParams) => boolean, timeoutMs?: number): Promise<PublishDiagnosticsParams>;
   /** Resolves with the first message matching `accept` (already received or future). */
@@ -61,10 +62,15 @@ export interface ClientOptions {
   readonly completion?: Record<string, unknown>;
   /** Whether the client can be asked to refresh its inlay hints (`workspace.inlayHint.refreshSupport`; default false). */
   readonly refreshHints?: boolean;
+  /** The command that starts the server, and its arguments before `--stdio` (default: this Node on dist/server.js). */
+  readonly server?: { readonly command: string; readonly args: readonly string[] };
+  /** The workspace folders (paths) the client names; none by default (`rootUri` null). */
+  readonly workspaceFolders?: readonly string[];
 }
 
 export async function startClient(settings: Record<string, unknown> = {}, options: ClientOptions = {}): Promise<LspClient> {
-  const child = spawn(process.execPath, ['dist/server.js', '--stdio'], { stdio: 'pipe' });
+  const server = options.server ?? { command: process.execPath, args: ['dist/server.js'] };
+  const child = spawn(server.command, [...server.args, '--stdio'], { stdio: 'pipe' });
   const connection = createProtocolConnection(new StreamMessageReader(child.stdout), new StreamMessageWriter(child.stdin));
   const published: PublishDiagnosticsParams[] = [];
   const waiters: { uri: string; accept: (p: PublishDiagnosticsParams) => boolean; resolve: (p: PublishDiagnosticsParams) => void }[] = [];
@@ -128,9 +134,11 @@ export async function startClient(settings: Record<string, unknown> = {}, option
   connection.listen();
   const initialize = await connection.sendRequest<InitializeResult>('initialize', {
     processId: process.pid,
-    rootUri: null,
+    rootUri: options.workspaceFolders?.[0] !== undefined ? pathToFileURL(options.workspaceFolders[0]).toString() : null,
+    ...(options.workspaceFolders ? { workspaceFolders: options.workspaceFolders.map((f) => ({ uri: pathToFileURL(f).toString(), name: f })) } : {}),
     capabilities: {
       workspace: {
+        ...(options.workspaceFolders ? { workspaceFolders: true } : {}),
         configuration: options.pullConfiguration ?? true,
         didChangeConfiguration: { dynamicRegistration: options.pullConfiguration ?? true },
         ...(options.refreshHints ? { inlayHint: { refreshSupport: true } } : {}),
@@ -152,6 +160,9 @@ export async function startClient(settings: Record<string, unknown> = {}, option
     },
     change(uri: string, text: string, version: number) {
       void connection.sendNotification('textDocument/didChange', { textDocument: { uri, version }, contentChanges: [{ text }] });
+    },
+    save(uri: string) {
+      void connection.sendNotification('textDocument/didSave', { textDocument: { uri } });
     },
     diagnostics(uri: string, accept: (p: PublishDiagnosticsParams) => boolean = () => true, timeoutMs = 15000) {
       const known = published.find((p) => p.uri === uri && accept(p));

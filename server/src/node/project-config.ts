@@ -25,6 +25,19 @@ function linksToJson(path: string): boolean {
   return /\.json$/i.test(basename(realpathSync.native(path)));
 }
 
+/** The file-system path of a `file:` note; null for any other URI. */
+export function notePathOf(uri: string): string | null {
+  if (!uri.startsWith('file:')) return null;
+  try {
+    return fileURLToPath(uri);
+  } catch {
+    return null;
+  }
+}
+
+/** The depth to which the lookup climbs (folders above the note's, the note's own included). */
+export const LOOKUP_DEPTH = 64;
+
 export interface FoundConfig {
   readonly path: string;
   readonly config: ParsedConfig;
@@ -35,28 +48,29 @@ export class ProjectConfigs {
   /** Folder → where its project file is (null: none above it); cleared by `invalidate`. */
   private readonly folders = new Map<string, string | null>();
 
-  forNote(uri: string): FoundConfig | null {
-    if (!uri.startsWith('file:')) return null;
-    let path: string;
-    try {
-      path = fileURLToPath(uri);
-    } catch {
-      return null;
-    }
-    return this.forPath(path);
+  /** The project file for a note by URI; `fresh` looks again at every folder above it (see `forPath`). */
+  forNote(uri: string, fresh = false): FoundConfig | null {
+    const path = notePathOf(uri);
+    return path === null ? null : this.forPath(path, fresh);
   }
 
-  /** The project file for a note at a file-system path (absolute). */
-  forPath(notePath: string): FoundConfig | null {
+  /**
+   * The project file for a note at a file-system path (absolute). Where the note's folder was
+   * looked up before, only the file found then is looked at again (its modification time and
+   * size), and the folders above it again only when it is gone; `fresh` looks at every folder
+   * again (a file may have been made nearer the note), a stat per folder.
+   */
+  forPath(notePath: string, fresh = false): FoundConfig | null {
     const start = dirname(notePath);
-    const known = this.folders.get(start);
+    const known = fresh ? undefined : this.folders.get(start);
+    if (known === null) return null;
     if (known !== undefined) {
-      const config = known === null ? null : this.read(known);
-      return config && known ? { path: known, config } : null;
+      const config = this.read(known);
+      if (config) return { path: known, config };
     }
     let dir = start;
     let found: FoundConfig | null = null;
-    for (let depth = 0; depth < 64; depth++) {
+    for (let depth = 0; depth < LOOKUP_DEPTH; depth++) {
       const candidate = join(dir, CONFIG_FILE_NAME);
       const config = this.read(candidate);
       if (config) {

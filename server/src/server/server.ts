@@ -6,10 +6,11 @@
  * and is logged, and the server goes on.
  */
 import { existsSync } from 'node:fs';
-import { join } from 'node:path';
+import { join, resolve } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import {
   DidChangeConfigurationNotification,
+  type WorkspaceFolder,
   TextDocumentSyncKind,
   TextDocuments,
   type Connection,
@@ -42,7 +43,8 @@ import {
   type TrendsParams,
   type TrendsResult,
 } from '../protocol';
-import { ProjectConfigs } from '../node/project-config';
+import { notePathOf, ProjectConfigs, type FoundConfig } from '../node/project-config';
+import { ConfigWatcher, foldersToWatch } from './config-watch';
 import { DEFAULT_CLIENT_SETTINGS, effectiveSettings, readClientSettings, settingsKey, type ClientSettings, type EffectiveSettings } from './settings';
 import { IdleCollector } from './memory';
 import { findingsToPublish, isHintRef, rangesOverlap, toCodeAction, toCompletionItem, toDiagnostic, toDocumentSymbol, toInlayHint, tooManyFindings } from './translate';
@@ -63,6 +65,26 @@ interface NoteState {
   /** Settles `reading`. */
   release: (() => void) | null;
   diagnostics: Diagnostic[];
+  /** The project file the settings were last read from (null: none applies). */
+  config: FoundConfig | null;
+  /** The project file the last analysis was made with; undefined before the first. */
+  analysedConfig: FoundConfig | null | undefined;
+}
+
+/** What of a project file decides an analysis: where it is and what it says. */
+function configKey(found: FoundConfig | null | undefined): string {
+  return found ? `${found.path}\0${JSON.stringify(found.config)}` : '';
+}
+
+/** The file-system paths of the workspace folders the client names (those that are `file:` URIs). */
+export function workspacePaths(folders: readonly WorkspaceFolder[] | null | undefined, rootUri: string | null | undefined): string[] {
+  const uris = folders ? folders.map((f) => f.uri) : rootUri ? [rootUri] : [];
+  const paths: string[] = [];
+  for (const uri of uris) {
+    const path = notePathOf(uri);
+    if (path !== null) paths.push(resolve(path));
+  }
+  return paths;
 }
 
 /** Requests about the note wait from now until `closeGate`. */
@@ -152,6 +174,10 @@ export function startServer(connection: Connection, collector: IdleCollector = n
   let deferHintTooltips = false;
   /** The client asks again for the hints it shows when told to (`workspace/inlayHint/refresh`). */
   let canRefreshHints = false;
+  /** The workspace folders (paths): the client's own watcher reports changes of project files inside them. */
+  let workspaceFolders: string[] = [];
+  /** The client tells of workspace folders added and removed. */
+  let folderChanges = false;
 
   const log = (message: string) => connection.console.log(message);
   const guard = <P, R>(name: string, fallback: R, handler: (params: P) => R) => (params: P): R => {
@@ -168,9 +194,12 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     deferHintTooltips = params.capabilities.textDocument?.inlayHint?.resolveSupport?.properties.includes('tooltip') === true;
     insertReplace = params.capabilities.textDocument?.completion?.completionItem?.insertReplaceSupport === true;
     canRefreshHints = params.capabilities.workspace?.inlayHint?.refreshSupport === true;
+    folderChanges = params.capabilities.workspace?.workspaceFolders === true;
+    workspaceFolders = workspacePaths(params.workspaceFolders, params.rootUri);
     return {
       capabilities: {
-        textDocumentSync: { openClose: true, change: TextDocumentSyncKind.Incremental, save: false },
+        // Saves are told of so that a project file above the workspace that could not be watched is looked at again.
+        textDocumentSync: { openClose: true, change: TextDocumentSyncKind.Incremental, save: { includeText: false } },
         hoverProvider: true,
         completionProvider: { triggerCharacters: [' ', ',', '@'], resolveProvider: false },
         codeActionProvider: { codeActionKinds: ['quickfix', 'refactor.rewrite', 'source.fixAll'] },
@@ -179,6 +208,7 @@ export function startServer(connection: Connection, collector: IdleCollector = n
         documentFormattingProvider: true,
         documentRangeFormattingProvider: true,
         inlayHintProvider: { resolveProvider: deferHintTooltips },
+        workspace: { workspaceFolders: { supported: true, changeNotifications: true } },
       },
       serverInfo: { name: 'pneumark', version: '0.1.0' },
     };
@@ -187,6 +217,14 @@ export function startServer(connection: Connection, collector: IdleCollector = n
   connection.onInitialized(() => {
     // Only changes of Pneumark's own settings: a change of any other setting of the editor need not reach us.
     if (canPullConfiguration) void connection.client.register(DidChangeConfigurationNotification.type, { section: 'pneumark' }).catch(() => undefined);
+    if (folderChanges) {
+      connection.workspace.onDidChangeWorkspaceFolders(guard('workspace folders', undefined, (e: { added: WorkspaceFolder[]; removed: WorkspaceFolder[] }) => {
+        const removed = new Set(workspacePaths(e.removed, null));
+        workspaceFolders = [...workspaceFolders.filter((f) => !removed.has(f)), ...workspacePaths(e.added, null)];
+        // Folders the editor watched may now be the server's to watch, and the other way round.
+        recheckConfigs();
+      }));
+    }
   });
 
   /** The editor's settings for a note: asked for it, else pushed by the client, else the defaults. */
@@ -222,8 +260,7 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     }
   }
 
-  function settingsFor(uri: string): EffectiveSettings {
-    const found = configs.forNote(uri);
+  function settingsFor(uri: string, found = configs.forNote(uri)): EffectiveSettings {
     publishConfigProblems(found?.path ?? null, found?.config.problems ?? []);
     return effectiveSettings(clientSettingsOf(uri), found?.config ?? null);
   }
@@ -240,18 +277,71 @@ export function startServer(connection: Connection, collector: IdleCollector = n
   }
 
   function stateFor(doc: TextDocument): NoteState {
-    const settings = settingsFor(doc.uri);
+    const found = configs.forNote(doc.uri);
+    const settings = settingsFor(doc.uri, found);
     const key = settingsKey(settings.analysis);
     let state = notes.get(doc.uri);
     if (!state) {
-      state = { session: new NoteSession(settings.analysis), key, settings, timer: null, published: null, diagnostics: [], reading: null, release: null };
+      state = { session: new NoteSession(settings.analysis), key, settings, timer: null, published: null, diagnostics: [], reading: null, release: null, config: found, analysedConfig: undefined };
       notes.set(doc.uri, state);
     } else if (state.key !== key) {
       state.session.setSettings(settings.analysis);
       state.key = key;
     }
     state.settings = settings;
+    state.config = found;
     return state;
+  }
+
+  /**
+   * Project files above the workspace: the editor reports changes inside its workspace folders
+   * only, so the server watches the folders above them that open notes read (see config-watch.ts)
+   * and looks at its notes' project files again when one of them changes.
+   */
+  const watcher = new ConfigWatcher(() => guard('project file change', undefined, recheckConfigs)(undefined), { log: (m) => connection.console.warn(m) });
+
+  /**
+   * Watches the folders outside the workspace whose project file would apply to the note (`found`
+   * is what was read there), and gives the project file that applies. A file made in a folder
+   * between the lookup and the start of its watch would go unnoticed: so when a watch starts,
+   * the folders are looked at once more.
+   */
+  function watchFoldersOf(uri: string, found: FoundConfig | null): FoundConfig | null {
+    const path = notePathOf(uri);
+    if (path === null || !watcher.need(uri, foldersToWatch(path, found?.path ?? null, workspaceFolders))) return found;
+    const again = configs.forPath(path, true);
+    if (configKey(again) !== configKey(found)) watcher.need(uri, foldersToWatch(path, again?.path ?? null, workspaceFolders));
+    return again;
+  }
+
+  /**
+   * Looks again at the project files of open notes (`uris`; all of them by default) and analyses
+   * again each note whose project file is another, or says something else, than the one its last
+   * analysis read. So a change reported twice (by the editor and by a watch here) or reported
+   * after an analysis already read it is analysed once. With `fresh`, only the notes named are
+   * looked up again, each from its own folder up (after a save, where a watch failed); otherwise
+   * everything read before is forgotten (after a reported change).
+   */
+  function recheckConfigs(uris: Iterable<string> = [...notes.keys()], fresh = false): void {
+    if (!fresh) configs.invalidate();
+    // A project file that is gone takes its problems with it (the notes below it now use the
+    // editor's settings, or a file further up).
+    for (const [uri, sent] of [...configDiagnostics]) {
+      if (existsSync(fileURLToPath(uri))) continue;
+      configDiagnostics.delete(uri);
+      if (sent !== '[]') void connection.sendDiagnostics({ uri, diagnostics: [] });
+    }
+    let changed = false;
+    for (const uri of uris) {
+      const state = notes.get(uri);
+      if (!state) continue;
+      const found = watchFoldersOf(uri, configs.forNote(uri, fresh));
+      // Before its first analysis a note has read nothing yet: that analysis reads the file as it is.
+      if (state.analysedConfig === undefined || configKey(found) === configKey(state.analysedConfig)) continue;
+      changed = true;
+      schedule(uri, true);
+    }
+    if (changed) refreshHints();
   }
 
   function tooLargeMessage(text: string, maxNoteBytes: number): string {
@@ -276,6 +366,7 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     const doc = documents.get(uri);
     if (!doc) return;
     const state = stateFor(doc);
+    state.analysedConfig = state.config;
     const version = doc.version;
     const started = performance.now();
     const text = doc.getText();
@@ -390,10 +481,24 @@ export function startServer(connection: Connection, collector: IdleCollector = n
 
   documents.onDidOpen((e) => {
     void pullClientSettings(e.document.uri).then(() => {
-      guard('open', undefined, () => stateFor(e.document))(undefined);
+      guard('open', undefined, () => {
+        // The note's folders are looked at afresh (a file may have been made where no watch
+        // was, or while no open note needed the folder watched), then watched.
+        const found = configs.forNote(e.document.uri, true);
+        stateFor(e.document);
+        watchFoldersOf(e.document.uri, found);
+        recheckUnwatched(e.document.uri);
+      })(undefined);
       schedule(e.document.uri, true);
     });
   });
+  documents.onDidSave(() => guard('save', undefined, recheckUnwatched)(undefined));
+
+  /** Notes that read a folder that could not be watched: their project files are looked at again (a stat per folder). */
+  function recheckUnwatched(except?: string): void {
+    const unwatched = watcher.unwatched().filter((uri) => uri !== except);
+    if (unwatched.length > 0) recheckConfigs(unwatched, true);
+  }
   documents.onDidChangeContent((e) => {
     if (!notes.has(e.document.uri)) return; // the open handler schedules the first analysis
     schedule(e.document.uri, false);
@@ -403,6 +508,7 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     state?.timer?.cancel();
     notes.delete(e.document.uri);
     clientSettings.delete(e.document.uri);
+    watcher.release(e.document.uri);
     void connection.sendDiagnostics({ uri: e.document.uri, diagnostics: [] });
   });
 
@@ -425,18 +531,7 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     void Promise.all(pulled).then(refreshHints, refreshHints);
   });
 
-  connection.onDidChangeWatchedFiles(() => {
-    configs.invalidate();
-    // A project file that is gone takes its problems with it (the notes below it now use the
-    // editor's settings, or a file further up).
-    for (const [uri, sent] of [...configDiagnostics]) {
-      if (existsSync(fileURLToPath(uri))) continue;
-      configDiagnostics.delete(uri);
-      if (sent !== '[]') void connection.sendDiagnostics({ uri, diagnostics: [] });
-    }
-    for (const doc of documents.all()) schedule(doc.uri, true);
-    refreshHints();
-  });
+  connection.onDidChangeWatchedFiles(() => guard('watched files', undefined, recheckConfigs)(undefined));
 
   const withResult = <P extends { textDocument: { uri: string } }, R>(name: string, fallback: R, body: (result: NoteResult, doc: TextDocument, state: NoteState, params: P) => R) =>
     (params: P): R | Promise<R> => afterReading(params.textDocument.uri, fallback, () => guard<P, R>(name, fallback, (p) => {

@@ -1,0 +1,224 @@
+/**
+ * Watches, for the language server, the folders whose `pneumark.config.json` decides an open
+ * note's settings but that the editor's own file watcher does not cover: the folders above the
+ * workspace (a shared parent folder) and, without a workspace, all of them. The editor reports
+ * changes inside its workspace folders (`workspace/didChangeWatchedFiles`), so those folders are
+ * never watched here.
+ *
+ * Each note names the folders it needs (`need`); a folder is watched (Node's `fs.watch`: inotify
+ * on Linux, nothing that polls) while some open note needs it, and let go when none does. Events
+ * about a file of another name are ignored; those about the project file are gathered for a short
+ * while (an editor's save is often a write and a rename) and then reported once. A folder that
+ * cannot be watched (ENOSPC when the system's watches are used up, EACCES, a folder that is
+ * removed or moved) is logged once and counted as unwatched (`watchesAll` is false for the notes
+ * that need it): the server looks at those notes' project files again when a note is opened or
+ * saved, and tries to watch the folder again the next time a note needs it.
+ */
+import { statSync, watch } from 'node:fs';
+import { basename, dirname, sep } from 'node:path';
+import { CONFIG_FILE_NAME } from '../core/config';
+import { LOOKUP_DEPTH } from '../node/project-config';
+
+/** Whether `dir` is one of `folders` or inside one. */
+export function insideFolders(dir: string, folders: readonly string[]): boolean {
+  for (const folder of folders) {
+    if (dir === folder) return true;
+    const prefix = folder.endsWith(sep) ? folder : folder + sep;
+    if (dir.startsWith(prefix)) return true;
+  }
+  return false;
+}
+
+/**
+ * The folders to watch for a note: those the lookup reads (`ProjectConfigs.forPath`), from the
+ * note's folder up to the one whose project file applies (a file above that one changes nothing),
+ * or up to the root when none does, leaving out the workspace folders and everything inside them.
+ */
+export function foldersToWatch(notePath: string, found: string | null, workspaceFolders: readonly string[]): string[] {
+  const last = found === null ? null : dirname(found);
+  const dirs: string[] = [];
+  let dir = dirname(notePath);
+  for (let depth = 0; depth < LOOKUP_DEPTH; depth++) {
+    if (!insideFolders(dir, workspaceFolders)) dirs.push(dir);
+    if (dir === last) break;
+    const parent = dirname(dir);
+    if (parent === dir) break;
+    dir = parent;
+  }
+  return dirs;
+}
+
+/** What the watcher needs of `fs.watch` (replaced in tests). */
+export interface WatchHandle {
+  close(): void;
+  on(event: 'error', listener: (error: Error) => void): unknown;
+}
+export type Watch = (dir: string, listener: (event: string, filename: string | null) => void) => WatchHandle;
+
+const nodeWatch: Watch = (dir, listener) =>
+  watch(dir, { persistent: false }, (event, filename) => listener(event, filename === null ? null : String(filename)));
+
+export interface ConfigWatcherOptions {
+  /** Milliseconds to gather events before reporting them (default 100). */
+  readonly debounceMs?: number;
+  readonly watch?: Watch;
+  /** The folder's identity, to tell a folder that is gone or replaced (default: its inode). */
+  readonly identity?: (dir: string) => number | null;
+  /** Where problems go (each once). */
+  readonly log?: (message: string) => void;
+}
+
+const GONE = 'the folder was removed or moved';
+
+interface Watched {
+  readonly owners: Set<string>;
+  handle: WatchHandle | null;
+  identity: number | null;
+}
+
+function inodeOf(dir: string): number | null {
+  try {
+    return statSync(dir).ino;
+  } catch {
+    return null;
+  }
+}
+
+function reasonOf(error: unknown): string {
+  const code = (error as { code?: unknown } | null)?.code;
+  return typeof code === 'string' ? code : error instanceof Error ? error.message : String(error);
+}
+
+export class ConfigWatcher {
+  private readonly dirs = new Map<string, Watched>();
+  private readonly owned = new Map<string, readonly string[]>();
+  private readonly logged = new Set<string>();
+  private timer: ReturnType<typeof setTimeout> | null = null;
+  private readonly debounceMs: number;
+  private readonly watch: Watch;
+  private readonly identity: (dir: string) => number | null;
+  private readonly log: (message: string) => void;
+
+  /** `changed` is called (once per burst of events) when a watched folder's project file may have changed. */
+  constructor(private readonly changed: () => void, options: ConfigWatcherOptions = {}) {
+    this.debounceMs = options.debounceMs ?? 100;
+    this.watch = options.watch ?? nodeWatch;
+    this.identity = options.identity ?? inodeOf;
+    this.log = options.log ?? (() => undefined);
+  }
+
+  /**
+   * Sets the folders `owner` (a note) needs watched, in place of those it needed before. True when
+   * a watch started: what was read in that folder before it may have changed since.
+   */
+  need(owner: string, dirs: readonly string[]): boolean {
+    const before = this.owned.get(owner) ?? [];
+    let started = false;
+    for (const dir of dirs) {
+      let watched = this.dirs.get(dir);
+      if (!watched) {
+        watched = { owners: new Set(), handle: null, identity: null };
+        this.dirs.set(dir, watched);
+      }
+      watched.owners.add(owner);
+      if (!watched.handle) started = this.start(dir, watched) || started;
+    }
+    for (const dir of before) if (!dirs.includes(dir)) this.drop(owner, dir);
+    if (dirs.length > 0) this.owned.set(owner, dirs);
+    else this.owned.delete(owner);
+    return started;
+  }
+
+  /** `owner` needs no folder any more (its note is closed). */
+  release(owner: string): void {
+    this.need(owner, []);
+  }
+
+  /** Whether every folder `owner` needs is being watched. */
+  watchesAll(owner: string): boolean {
+    const dirs = this.owned.get(owner);
+    return !dirs || dirs.every((dir) => this.dirs.get(dir)?.handle != null);
+  }
+
+  /** The notes that need a folder that is not being watched. */
+  unwatched(): string[] {
+    return [...this.owned.keys()].filter((owner) => !this.watchesAll(owner));
+  }
+
+  /** The folders being watched now. */
+  watching(): string[] {
+    return [...this.dirs].filter(([, w]) => w.handle !== null).map(([dir]) => dir);
+  }
+
+  /** Stops every watch. */
+  close(): void {
+    for (const watched of this.dirs.values()) watched.handle?.close();
+    this.dirs.clear();
+    this.owned.clear();
+    if (this.timer) clearTimeout(this.timer);
+    this.timer = null;
+  }
+
+  private start(dir: string, watched: Watched): boolean {
+    try {
+      watched.identity = this.identity(dir);
+      const handle = this.watch(dir, (_event, filename) => this.heard(dir, handle, filename));
+      handle.on('error', (error) => this.lost(dir, handle, reasonOf(error)));
+      watched.handle = handle;
+      return true;
+    } catch (error) {
+      watched.handle = null;
+      this.logOnce(dir, reasonOf(error));
+      return false;
+    }
+  }
+
+  private heard(dir: string, handle: WatchHandle, filename: string | null): void {
+    if (filename === null || filename === CONFIG_FILE_NAME) {
+      this.soon();
+      return;
+    }
+    // An event named after the folder itself: it may have been removed or moved, which ends the watch silently.
+    if (filename === basename(dir) && this.dirs.get(dir)?.handle === handle) {
+      const now = this.identity(dir);
+      if (now === null || now !== this.dirs.get(dir)?.identity) this.lost(dir, handle, GONE);
+    }
+  }
+
+  /** A watch that has ended: the notes that need it fall back, and what they read is looked at again. */
+  private lost(dir: string, handle: WatchHandle, reason: string): void {
+    const watched = this.dirs.get(dir);
+    handle.close();
+    if (!watched || watched.handle !== handle) return;
+    watched.handle = null;
+    this.logOnce(dir, reason);
+    this.soon();
+  }
+
+  private drop(owner: string, dir: string): void {
+    const watched = this.dirs.get(dir);
+    if (!watched) return;
+    watched.owners.delete(owner);
+    if (watched.owners.size > 0) return;
+    watched.handle?.close();
+    this.dirs.delete(dir);
+  }
+
+  private soon(): void {
+    if (this.timer) clearTimeout(this.timer);
+    this.timer = setTimeout(() => {
+      this.timer = null;
+      this.changed();
+    }, this.debounceMs);
+    this.timer.unref?.();
+  }
+
+  private logOnce(dir: string, reason: string): void {
+    // A folder that is gone is not a problem to report: nothing below it is left to read.
+    if (reason === 'ENOENT' || reason === GONE) return;
+    const message = `pneumark: cannot watch ${dir} for changes of ${CONFIG_FILE_NAME} (${reason}); a change there is noticed when a note below it is opened or saved.`;
+    if (this.logged.has(message)) return;
+    this.logged.add(message);
+    this.log(message);
+  }
+}
