@@ -160,6 +160,7 @@ describe('grammar and parser agree', () => {
       `vitals bp 120${b}/${b}80${b}mmHg`,
       `vent mode${b}VC, vt${b}430${b}mL, peep 10${b}cmH2O`,
       `oxygen${b}nasal${b}2${b}L/min, fio2${b}0.3`,
+      `oxygen room${b}air${b}`,
       `patient sex${b}female, age 60${b}y`,
       `vitals hr 80${b}`,
       `vitals hr 80 bpm${b}`,
