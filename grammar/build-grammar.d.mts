@@ -11,6 +11,8 @@ export interface GrammarRegistries {
     readonly openWords?: boolean;
   }[];
   readonly UNITS: readonly { readonly id: string; readonly aliases: readonly string[] }[];
+  /** The blanks of the format (blanks.ts): `\s` in the grammar's patterns is written as these. */
+  readonly BLANKS: readonly { readonly code: number; readonly name: string }[];
 }
 
 export interface GrammarRule {
@@ -41,6 +43,10 @@ export interface Snippet {
 }
 
 export function ci(word: string): string;
+/** The inside of a character class of the blanks, with `\n` and `\r` (`\u0009-\u000D\u0020…`). */
+export function blankClassBody(blanks: GrammarRegistries['BLANKS']): string;
+/** A pattern with each `\s` written as the class of the blanks (`body` from `blankClassBody`). */
+export function withBlanks(source: string, body: string): string;
 /** Unit spellings a note can write; those of two words (`mm hg`) only with `twoWords`. */
 export function unitSpellings(units: GrammarRegistries['UNITS'], twoWords?: boolean): string[];
 export function buildGrammar(registries: GrammarRegistries): Grammar;

@@ -13,13 +13,81 @@
 //   or possessive quantifiers; case-insensitivity is spelled out as [aA] classes;
 // - no group repeated by *, + or {n,m} contains a quantifier (only `?` wraps quantifiers);
 // - tokens are delimited with one-character lookarounds (chunk start / chunk end) rather
-//   than with variable-length scans.
+//   than with variable-length scans;
+// - `\s` in the patterns below stands for a blank of the format: `withBlanks` writes each one as
+//   the class of the core's `BLANKS` (blanks.ts), so the grammar and the lexer share one list
+//   (`\s` itself differs between engines: Oniguruma's has no U+FEFF, ECMAScript's no U+0085).
 import { createRequire } from 'node:module';
 import { readFileSync, writeFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 
 // ── regex helpers ──────────────────────────────────────────────────────────
+
+/** `\uHHHH`: a code unit as both Oniguruma and ECMAScript (without flags) read it in a pattern. */
+function hex4(code) {
+  return `\\u${code.toString(16).toUpperCase().padStart(4, '0')}`;
+}
+
+/**
+ * The inside of a character class of the format's blanks (`BLANKS` of the core), with the line
+ * ends `\n` and `\r`: a line never holds one, but the TextMate engine gives each line with a
+ * `\n` after it, which no chunk may take in. Runs of consecutive codes are written as ranges.
+ */
+export function blankClassBody(blanks) {
+  const codes = [...new Set([0x0a, 0x0d, ...blanks.map((b) => b.code)])].sort((a, b) => a - b);
+  let out = '';
+  for (let i = 0; i < codes.length; ) {
+    let j = i;
+    while (j + 1 < codes.length && codes[j + 1] === codes[j] + 1) j++;
+    out += j === i ? hex4(codes[i]) : j === i + 1 ? hex4(codes[i]) + hex4(codes[j]) : `${hex4(codes[i])}-${hex4(codes[j])}`;
+    i = j + 1;
+  }
+  return out;
+}
+
+/**
+ * A pattern with each `\s` written as the format's blanks: inside a character class (`[^\s,#]`)
+ * as the class's body, elsewhere as a class of its own. Reads escapes and classes once; `\S` is
+ * refused (write `[^\s]`).
+ */
+export function withBlanks(source, body) {
+  let out = '';
+  let inClass = false;
+  for (let i = 0; i < source.length; i++) {
+    const c = source[i];
+    if (c === '\\') {
+      const next = source[i + 1];
+      if (next === 'S') throw new Error(`\\S in a pattern: write [^\\s] instead (${source})`);
+      out += next === 's' ? (inClass ? body : `[${body}]`) : c + next;
+      i++;
+      continue;
+    }
+    if (!inClass && c === '[') {
+      inClass = true;
+      // A `]` right after `[` or `[^` is a character of the class, not its end.
+      const lead = source.startsWith('[^', i) ? 2 : 1;
+      const head = source.slice(i, i + lead + (source[i + lead] === ']' ? 1 : 0));
+      out += head;
+      i += head.length - 1;
+      continue;
+    }
+    if (inClass && c === ']') inClass = false;
+    out += c;
+  }
+  return out;
+}
+
+/** A grammar rule (and the rules inside it) with `withBlanks` applied to its patterns. */
+function blanksInRule(rule, body) {
+  if (Array.isArray(rule)) return rule.map((r) => blanksInRule(r, body));
+  if (rule === null || typeof rule !== 'object') return rule;
+  const out = {};
+  for (const [key, value] of Object.entries(rule)) {
+    out[key] = (key === 'match' || key === 'begin' || key === 'end') && typeof value === 'string' ? withBlanks(value, body) : blanksInRule(value, body);
+  }
+  return out;
+}
 
 /** Escapes regex syntax characters (the same set works for Oniguruma and ECMAScript). */
 function esc(text) {
@@ -373,10 +441,12 @@ function unknownBegin() {
 // ── the grammar ────────────────────────────────────────────────────────────
 
 /**
- * Builds the TextMate grammar from the registries (`SECTIONS`, `FIELDS`, `UNITS` as exported by
- * the core). Pure: the same registries give the same object.
+ * Builds the TextMate grammar from the registries (`SECTIONS`, `FIELDS`, `UNITS` and `BLANKS` as
+ * exported by the core). Pure: the same registries give the same object.
  */
-export function buildGrammar({ SECTIONS, FIELDS, UNITS }) {
+export function buildGrammar({ SECTIONS, FIELDS, UNITS, BLANKS }) {
+  if (!Array.isArray(BLANKS) || BLANKS.length === 0) throw new Error('buildGrammar needs the blanks of the format (BLANKS of the core)');
+  const blanks = blankClassBody(BLANKS);
   // A unit may be of two words (`mm Hg`), glued to its number or after blanks, as the parser reads it.
   const spellings = alt(unitSpellings(UNITS, true));
   const units = { glued: spellings, spaced: spellings };
@@ -470,8 +540,8 @@ export function buildGrammar({ SECTIONS, FIELDS, UNITS }) {
     name: 'Pneumark',
     scopeName: 'source.pneumark',
     fileTypes: ['pneu'],
-    patterns,
-    repository,
+    patterns: blanksInRule(patterns, blanks),
+    repository: blanksInRule(repository, blanks),
   };
 }
 

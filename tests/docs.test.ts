@@ -15,9 +15,10 @@ describe('check documentation', () => {
     expect(readFileSync('docs/checks.md', 'utf8')).toBe(renderCheckDocs());
   });
 
-  it('grammar/README.md carries the current tables of keys and units, and of derived values', () => {
+  it('grammar/README.md carries the current tables of blanks, of keys and units, and of derived values', () => {
     const doc = readFileSync('grammar/README.md', 'utf8');
     expect(doc).toContain(FIELD_TABLE_START);
+    expect(doc).toContain('<!-- blanks:start');
     expect(doc).toContain('<!-- derived:start');
     expect(withGeneratedTables(doc)).toBe(doc);
   });

@@ -6,9 +6,9 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { buildGrammar, generatedFiles } from '../../grammar/build-grammar.mjs';
-import { FIELDS, SECTIONS, UNITS } from '../../server/src/core/index';
+import { BLANKS, FIELDS, SECTIONS, UNITS } from '../../server/src/core/index';
 
-const registries = { SECTIONS, FIELDS, UNITS };
+const registries = { SECTIONS, FIELDS, UNITS, BLANKS };
 
 describe('generated editor files', () => {
   for (const file of generatedFiles(registries)) {

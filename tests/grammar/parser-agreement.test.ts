@@ -11,14 +11,12 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { fieldFor } from '../../server/src/core/fields/registry';
 import { unitsForSpelling } from '../../server/src/core/fields/units';
-import { parseLine, splitLines, type LineNode } from '../../server/src/core/index';
+import { BLANKS, isBlank, parseLine, splitLines, type LineNode } from '../../server/src/core/index';
 import type { Span } from '../../server/src/core/syntax/tree';
 import { messyLine } from '../service/note-arbitraries';
 import { scopesAt, tokenizeLines, type ScopedToken } from './tokenize';
 
 const S = (name: string) => `${name}.pneumark`;
-/** Blanks as the lexer knows them; they carry no scope of their own. */
-const BLANK = /[\s\uFEFF]/u;
 const NUMBER_START = /^[-+−]?\.?[0-9]/u;
 
 /** Everything in the line the grammar disagrees with the parser about. */
@@ -27,7 +25,8 @@ function disagreements(node: LineNode, tokens: readonly ScopedToken[]): string[]
   const text = node.text;
   const expectSpan = (span: Span, what: string, ...anyOf: string[]) => {
     for (let i = span.start; i < span.end; i++) {
-      if (BLANK.test(text[i]!)) continue;
+      // Blanks as the lexer knows them carry no scope of their own.
+      if (isBlank(text.charCodeAt(i))) continue;
       const scopes = scopesAt(tokens, i);
       if (!anyOf.some((s) => scopes.includes(s))) {
         out.push(`${what} \`${text.slice(span.start, span.end)}\` at ${span.start}: expected ${anyOf.join(' or ')}, got ${scopes.join(' ')}`);
@@ -111,9 +110,9 @@ function disagreements(node: LineNode, tokens: readonly ScopedToken[]): string[]
 async function check(texts: readonly string[]): Promise<string[]> {
   const failures: string[] = [];
   for (const text of texts) {
-    // Editors drop a byte-order mark at the start of a file before highlighting. Elsewhere the
-    // lexer reads U+FEFF as a blank, which TextMate's `\s` is not; a space stands in for it here.
-    const lines = splitLines(text.replace(/\uFEFF/gu, ' ')).lines.map((l) => l.text);
+    // Editors drop a byte-order mark at the start of a file before highlighting; anywhere else,
+    // U+FEFF is a blank for the grammar as for the lexer.
+    const lines = splitLines(text.charCodeAt(0) === 0xfeff ? text.slice(1) : text).lines.map((l) => l.text);
     const tokens = await tokenizeLines(lines);
     lines.forEach((line, i) => {
       for (const d of disagreements(parseLine(line, i), tokens[i]!)) failures.push(`${JSON.stringify(line)}: ${d}`);
@@ -141,5 +140,46 @@ describe('grammar and parser agree', () => {
   it('on generated messy lines', async () => {
     const lines = fc.sample(messyLine, { numRuns: 1500, seed: 20250101 });
     expect(await check([lines.join('\n')])).toEqual([]);
+  });
+
+  it('on lines with each blank of the format at the start, in the middle and at the end', async () => {
+    // Every character the lexer reads as a blank (blanks.ts, which the grammar is built from), in
+    // every place a blank separates something: before the section word, between the section word
+    // and the first key, between a key and its value, between a value and its unit (also inside a
+    // unit of two words), around a spaced slash, in a timepoint, in prose, at the end of the line
+    // and before a comment.
+    const lines = (b: string) => [
+      `${b}vitals hr 80, rr 20`,
+      `${b}${b}vitals${b}${b}hr${b}${b}80${b}${b}`,
+      `vitals${b}hr 80,${b}rr 20`,
+      `vitals hr${b}80, rr${b}20`,
+      `vitals spo2 94${b}%, temp 38.4${b}C, hr 80`,
+      `abg po2 71${b}mmHg, pco2 40 mm${b}Hg, ph 7.4`,
+      `abg${b}7.28/56/71/26${b}kPa, be${b}-2`,
+      `abg 7.28${b}/${b}56${b}/${b}71 mmHg`,
+      `vitals bp 120${b}/${b}80${b}mmHg`,
+      `vent mode${b}VC, vt${b}430${b}mL, peep 10${b}cmH2O`,
+      `oxygen${b}nasal${b}2${b}L/min, fio2${b}0.3`,
+      `oxygen room${b}air${b}`,
+      `patient sex${b}female, age 60${b}y`,
+      `vitals hr 80${b}`,
+      `vitals hr 80 bpm${b}`,
+      `vitals hr 80${b}# after${b}the value`,
+      `vitals hr 80.${b}`,
+      `@${b}day${b}2${b}08:00${b}arrival${b}`,
+      `@${b}+2h30${b}`,
+      `@ 08:00,${b}handover${b}# note`,
+      `note${b}feels${b}better${b}`,
+      `${b}# a comment`,
+      `vitls${b}hr 80`,
+      `vitals 80${b}120`,
+    ];
+    expect(BLANKS.length).toBeGreaterThan(20);
+    const failures: string[] = [];
+    for (const blank of BLANKS) {
+      const b = String.fromCharCode(blank.code);
+      for (const f of await check([lines(b).join('\n')])) failures.push(`${blank.name}: ${f}`);
+    }
+    expect(failures).toEqual([]);
   });
 });

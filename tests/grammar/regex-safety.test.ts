@@ -140,6 +140,13 @@ describe('regexes of the editor files', () => {
       'note ' + 'a '.repeat(n) + '\t',
       ',' .repeat(n) + '#',
       '\t'.repeat(n) + '@',
+      // The blanks beyond ASCII are in the same classes as the space (blanks.ts): long runs of
+      // them, mixed with spaces, between words and before a unit of two words.
+      '\u00A0'.repeat(n) + 'x',
+      '\uFEFF \u2009'.repeat(n) + '#',
+      'vitals hr' + '\u3000'.repeat(n) + '80' + '\u202F'.repeat(n) + 'mm',
+      'abg po2 80 mm' + ' \u0085'.repeat(n) + '!',
+      '@\u2028day' + '\u00A01'.repeat(n) + ':',
     ];
     const slow: string[] = [];
     for (const { where, source } of all) {

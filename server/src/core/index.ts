@@ -6,6 +6,7 @@
 export { checkNote, checkTree, runChecks, type NoteResult } from './check-note';
 export { NoteSession, type SessionStats } from './session';
 export { parseNote, parseLine, splitLines } from './syntax/parser';
+export { BLANKS, isBlank, isPlainBlank, type BlankChar } from './syntax/blanks';
 export type * from './syntax/tree';
 export type * from './analysis/model';
 export type * from './derive/model';

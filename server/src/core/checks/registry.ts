@@ -19,6 +19,7 @@ import { timeGoesBack } from './time-order';
 import { rateBelowSet } from './rate-order';
 import { flowOnRoomAirCheck } from './room-air-flow';
 import { therapyOverlap } from './therapy-overlap';
+import { unusualBlank } from './unusual-blank';
 import { fio2OutOfRange, impossibleValue, saturationAbove100, unusualValue } from './value-bounds';
 
 export const CHECKS: readonly CheckDef[] = validateCheckList([
@@ -28,6 +29,7 @@ export const CHECKS: readonly CheckDef[] = validateCheckList([
   badTime,
   strayText,
   badShorthand,
+  unusualBlank,
   unknownKey,
   unknownUnit,
   unitNotAllowed,

@@ -5,6 +5,7 @@
  */
 
 import { MMHG_PER_KPA, PA_PER_CMH2O } from '../physiology/units';
+import { squeezeBlanks } from '../syntax/blanks';
 
 export type Dimension =
   | 'gas-pressure'
@@ -122,10 +123,10 @@ export function unitsForSpelling(text: string): readonly UnitDef[] {
 
 /**
  * A unit of two words as the registry spells it: lower case, one space between the words (`mm
- * Hg` written with a tab or two spaces is still millimetres of mercury). Only on a miss.
+ * Hg` written with a tab, two spaces or any other blanks is still millimetres of mercury). Only on a miss.
  */
 function oneSpaced(text: string): string {
-  return text.toLowerCase().split(/\s+/).join(' ');
+  return squeezeBlanks(text.toLowerCase());
 }
 
 export function isKnownUnitSpelling(text: string): boolean {

@@ -16,6 +16,7 @@ import type { NoteResult } from '../check-note';
 import { displayUnit } from '../analysis/read-value';
 import { fieldFor, fieldsInSection, type FieldDef } from '../fields/registry';
 import { SECTIONS, sectionByName, type SectionDef, type SectionId } from '../fields/sections';
+import { squeezeBlanks } from '../syntax/blanks';
 import { chunkLine, isBlank, leadingNumber } from '../syntax/lexer';
 import { parseLine } from '../syntax/parser';
 import type { ItemNode, LineNode } from '../syntax/tree';
@@ -177,7 +178,7 @@ function keepNextWord(node: LineNode, ch: number, items: CompletionInfo[]): Comp
  * the start of such a device.
  */
 function leadDeviceCompletions(text: string, leadStart: number, ch: number, replace: Range): CompletionInfo[] | null {
-  const lead = text.slice(leadStart, ch).replace(/\s+/g, ' ').toLowerCase();
+  const lead = squeezeBlanks(text.slice(leadStart, ch)).toLowerCase();
   if (!lead.includes(' ') || lead.includes(',')) return null;
   const found = wordCompletions(fieldFor('oxygen', 'device'), replace).filter((c) => c.label.includes(' ') && c.label.toLowerCase().startsWith(lead));
   return found.length > 0 ? found : null;

@@ -8,7 +8,9 @@
  * written after the last item kept. A unit glued to its number (`89%`) is written apart (`89 %`)
  * when it is a known unit. Note lines keep their prose exactly. Timepoint lines read
  * `@ <time>  <label>` (time words single spaced, label exactly as written), or `@ <time>, <label>`
- * when a comma was written after the time.
+ * when a comma was written after the time. Every blank written between words that are read,
+ * also inside a unit or a word of two words and a shorthand gas, becomes one plain space (a
+ * no-break or thin space is an unusual blank, PN107).
  *
  * Nothing but blanks is ever removed: commas that separate nothing (at the start of a line, right
  * after the section word, a second one between two items) and a full stop that ends the items are
@@ -26,6 +28,7 @@
  */
 import { isKnownUnitSpelling } from '../fields/units';
 import { isBlank } from '../syntax/lexer';
+import { squeezeBlanks } from '../syntax/blanks';
 import { eachLineBetween, parseLine, parseNote } from '../syntax/parser';
 import type { ItemNode, LineNode, SectionLine, TimepointLine } from '../syntax/tree';
 import type { TextEdit } from '../types';
@@ -148,8 +151,8 @@ function unitText(item: ItemNode, unglue: boolean): string {
   const unit = item.unit;
   if (!unit) return '';
   const glued = item.value !== null && unit.span.start === item.value.span.end;
-  if (glued && !(unglue && isKnownUnitSpelling(unit.text))) return unit.text;
-  return ` ${unit.text}`;
+  if (glued && !(unglue && isKnownUnitSpelling(unit.text))) return squeezeBlanks(unit.text);
+  return ` ${squeezeBlanks(unit.text)}`;
 }
 
 function itemsText(node: SectionLine, unglue: boolean): string | null {
@@ -169,12 +172,12 @@ function itemsText(node: SectionLine, unglue: boolean): string | null {
         unit ??= last.unit;
       }
       if (!item.value || !last.value) return null;
-      const group = node.text.slice(item.value.span.start, last.value.span.end);
-      parts.push(unit ? `${group} ${unit.text}` : group);
+      const group = squeezeBlanks(node.text.slice(item.value.span.start, last.value.span.end));
+      parts.push(unit ? `${group} ${squeezeBlanks(unit.text)}` : group);
       leadEnd = (unit ?? last.value).span.end;
     } else if (item.implied === 'device') {
       if (!item.value) return null;
-      let lead = item.value.text;
+      let lead = squeezeBlanks(item.value.text);
       leadEnd = item.value.span.end;
       const flow = items[i + 1];
       if (flow?.implied === 'device-flow') {
@@ -188,7 +191,7 @@ function itemsText(node: SectionLine, unglue: boolean): string | null {
       return null; // a flow always follows its device
     } else {
       if (!item.key || !item.value) return null;
-      parts.push(`${item.key.text} ${item.value.text}${unitText(item, unglue)}`);
+      parts.push(`${item.key.text} ${squeezeBlanks(item.value.text)}${unitText(item, unglue)}`);
     }
     i++;
   }
@@ -208,7 +211,7 @@ function signature(node: LineNode): string {
     case 'section':
       return JSON.stringify([
         'section', node.section, node.sectionToken.text, node.prose?.text ?? null, comment, node.issues.length,
-        node.items.map((i) => [i.keyName, i.implied, i.key?.text ?? null, i.value?.kind ?? null, i.value?.text ?? null, i.unit?.text ?? null]),
+        node.items.map((i) => [i.keyName, i.implied, i.key?.text ?? null, i.value?.kind ?? null, i.value ? squeezeBlanks(i.value.text) : null, i.unit ? squeezeBlanks(i.unit.text) : null]),
       ]);
     case 'timepoint':
       return JSON.stringify(['timepoint', node.time ? [node.time.kind, node.time.day, node.time.minutes, singleSpaced(node.time.text)] : null, node.label?.text ?? null, comment, node.issues.length]);

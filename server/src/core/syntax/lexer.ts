@@ -5,6 +5,7 @@
  */
 import type { Span } from './tree';
 import { compact } from '../util/numbers';
+import { isBlank } from './blanks';
 
 /**
  * A chunk of a line: its text and where it is. A chunk is its own span (`span` returns the chunk),
@@ -24,14 +25,8 @@ export class Chunk implements Span {
   }
 }
 
-export function isBlank(code: number): boolean {
-  // Most characters of a note are printable ASCII, none of them a blank: two comparisons for them.
-  if (code > 0x20 && code < 0xa0) return false;
-  return (
-    code === 0x20 || code === 0x09 || code === 0x0b || code === 0x0c || code === 0xa0 || code === 0xfeff ||
-    code === 0x1680 || (code >= 0x2000 && code <= 0x200a) || code === 0x202f || code === 0x205f || code === 0x3000
-  );
-}
+/** Blanks are defined once, in blanks.ts, for the lexer, the grammar and the format spec alike. */
+export { isBlank } from './blanks';
 
 /**
  * `text.toLowerCase()`, without a copy when the text has no capital to lower: V8 makes a new string
