@@ -53,7 +53,7 @@ export type Outcome =
   // The extras by reference: most values give none or one shared object (no copy per value).
   | { readonly kind: 'value'; readonly value: number; readonly terms: readonly Term[]; readonly extras: ValueExtras }
   | { readonly kind: 'missing'; readonly needs: readonly string[] }
-  | { readonly kind: 'na'; readonly reason: string };
+  | { readonly kind: 'na'; readonly reason: string; readonly withheldBy?: string };
 
 export interface DerivedDef {
   readonly id: string;
@@ -227,6 +227,15 @@ export class DeriveContext {
     return d instanceof ComputedValue ? d.asTerm(name ?? d.short) : null;
   }
 
+  /**
+   * For a value computed from another one that a finding withholds (a CaO2 from a PaO2 PN401 says
+   * cannot be, a P/F adjusted for altitude from such a P/F): withheld too, for the same reason.
+   */
+  withheldFrom(id: string): Outcome | null {
+    const r = this.evaluate(id);
+    return r !== null && 'withheldBy' in r && r.withheldBy !== null ? { kind: 'na', reason: r.reason, withheldBy: r.withheldBy } : null;
+  }
+
   derivedValue(id: string): DerivedValue | null {
     const r = this.evaluate(id);
     return r instanceof ComputedValue ? r : null;
@@ -387,7 +396,7 @@ function evaluateDef(def: DerivedDefinition, c: DeriveContext): DerivedValue | M
   // Found after computing: the anchors the formula read are answered from what it read.
   const line = anchorLine(def, c);
   if (outcome.kind === 'missing') return new Missing(def, outcome.needs, line);
-  if (outcome.kind === 'na') return { id: def.id, label: def.label, reason: outcome.reason, line };
+  if (outcome.kind === 'na') return { id: def.id, label: def.label, reason: outcome.reason, line, withheldBy: outcome.withheldBy ?? null };
   return new ComputedValue(def, outcome, usesCarried(outcome.terms, c), line);
 }
 
