@@ -78,6 +78,7 @@ export interface NotApplicable {
 /** Why values are withheld, by the code of the finding that withholds them: a clause for what people read. */
 export const WITHHELD_BECAUSE: Readonly<Record<string, string>> = {
   PN401: 'the PaO2 is above the alveolar PO2 that the FiO2, pressure and PaCO2 in force allow (see PN401)',
+  PN312: 'the set rate of 0 cannot be right in a mode that delivers mandatory breaths, and no rate is measured (see PN312)',
 };
 
 /** `withheld: the PaO2 is above … (see PN401)`, or the reason itself for a finding not listed. */
