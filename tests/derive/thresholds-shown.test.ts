@@ -51,8 +51,8 @@ describe('readings and checks', () => {
     const messages = (text: string) => checkNote(text).findings.map((f) => f.message);
     expect(messages('@ 08:00\nabg pco2 56 kPa')).toContain('PaCO2 56 kPa is impossible (expected 0.7 kPa to 53.3 kPa); it is not used in calculations. In mmHg it would be ordinary.');
     expect(messages('@ 08:00\nabg pco2 1.5 kPa')).toContain('PaCO2 1.5 kPa is unusual (usually 2.0 kPa to 20.0 kPa): check the unit and the transcription.');
-    // Tidal volume at most 1200 mL, inspiratory flow 10–120 L/min.
-    expect(messages('@ 08:00\nvent vt 1.5 L')).toContain('Tidal volume 1.5 L is unusual (usually at most 1.2 L): check the unit and the transcription.');
+    // Tidal volume 50–1200 mL with no body size in the note, inspiratory flow 10–120 L/min.
+    expect(messages('@ 08:00\nvent vt 1.5 L')).toContain('Tidal volume 1.5 L is unusual (usually 0.05 L to 1.2 L): check the unit and the transcription.');
     expect(messages('@ 08:00\nvent flow 0.1 L/s')).toContain('Inspiratory flow 0.1 L/s is unusual (usually 0.17 L/s to 2 L/s): check the unit and the transcription.');
   });
 

@@ -52,6 +52,7 @@ time, its label and its line number) with
   SECTION    each line's values, normalised, with units (the other unit system in brackets)
   carried    values in force from an earlier timepoint, with the line they were stated on
   derived    values computed from those in force
+  withheld   values a finding keeps back (e.g. P/F when PaO2 is above the alveolar PO2), with why
   missing    what to add (as keys written in a note) to get the ones that could not be computed
   reading    what the values are consistent with
 and each finding (error, warning or info) under the line it belongs to. A legend at the end

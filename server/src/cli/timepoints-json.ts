@@ -69,7 +69,7 @@ function timepointJson(tp: Timepoint, derivation: TimepointDerivation, writtenLa
       source: d.source,
     })),
     missing: derivation.missing.map((m) => ({ id: m.id, needs: m.needs, message: m.message })),
-    notApplicable: derivation.notApplicable.map((n) => ({ id: n.id, reason: n.reason })),
+    notApplicable: derivation.notApplicable.map((n) => ({ id: n.id, reason: n.reason, withheldBy: n.withheldBy })),
     readings: derivation.interpretations.map((i) => ({ topic: i.topic, text: i.text, notable: i.notable })),
   };
 }

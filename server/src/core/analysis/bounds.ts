@@ -14,10 +14,24 @@ export interface BoundsContext {
   readonly barometricMmhg: number | null;
 }
 
-/** The soft bounds of a field where the barometric pressure in force is `barometricMmhg` (null: unknown). */
-export function softBoundsAt(field: FieldDef, barometricMmhg: number | null): Bounds | undefined {
+/**
+ * The lowest usual tidal volume, mL per kg of body size: half the 4 mL/kg predicted body weight at
+ * the bottom of the ARDS Network protocol's range, to leave room for ultra-protective settings
+ * (common practice, no source). With no body size in force, the tidal volume's soft minimum in the
+ * field registry applies: this figure times the 25 kg soft minimum of weight (50 mL).
+ */
+export const VT_USUAL_MIN_ML_PER_KG = 2;
+
+/**
+ * The soft bounds of a field where the barometric pressure in force is `barometricMmhg` (null:
+ * unknown) and the patient's body size is `bodyKg` (the smaller of the weight and the predicted
+ * body weight in force; null: unknown). A tidal volume's usual minimum follows the body size when
+ * one is known (`VT_USUAL_MIN_ML_PER_KG`): 5 mL is usual only for the smallest infants.
+ */
+export function softBoundsAt(field: FieldDef, barometricMmhg: number | null, bodyKg: number | null = null): Bounds | undefined {
   const soft = field.soft;
   if (!soft) return undefined;
+  if (bodyKg !== null && bodyKg > 0 && field.id === 'vt') return { min: VT_USUAL_MIN_ML_PER_KG * bodyKg, max: soft.max };
   if (barometricMmhg !== null && barometricMmhg < LOW_PRESSURE_WAIVER_MMHG && WAIVED_AT_ALTITUDE.has(field.id)) {
     return soft.max === undefined ? {} : { max: soft.max };
   }

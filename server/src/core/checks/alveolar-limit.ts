@@ -15,7 +15,7 @@ export const pao2AboveAlveolar = defineCheck({
   severity: 'error',
   tags: ['physiology'],
   doc: {
-    fires: `The arterial PO2 is more than ${ALVEOLAR_ROUNDING_MMHG} mmHg above the alveolar PO2 that the FiO2, barometric pressure and PaCO2 in force allow. Blood cannot hold a higher PO2 than the gas it meets, so something in the note is wrong; no A–a gradient is computed, and no oxygenation or respiratory failure reading is given from that PaO2.`,
+    fires: `The arterial PO2 is more than ${ALVEOLAR_ROUNDING_MMHG} mmHg above the alveolar PO2 that the FiO2, barometric pressure and PaCO2 in force allow. Blood cannot hold a higher PO2 than the gas it meets, so something in the note is wrong. Nothing is computed from that PaO2 (A–a gradient, a/A ratio, P/F, oxygenation index, CaO2 and what follows from them): hints, hovers, \`show\` and exports say they are withheld, or leave their cells empty. No oxygenation or respiratory failure reading is given from it either.`,
     example: '@ 08:00\noxygen room air\nabg ph 7.40, pco2 40, po2 160',
     fix: 'Check the FiO2 in force (and where it came from), the unit of the PaO2 (kPa written as mmHg?), and an air bubble in the syringe, which pulls the sample\'s PO2 towards that of room air.',
   },

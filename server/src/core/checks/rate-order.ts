@@ -1,13 +1,14 @@
 /**
- * A measured respiratory rate below the rate set on the ventilator, in a mode that delivers every
- * set breath: the total rate cannot be lower than the set one, so one of the two is wrong.
+ * Rates on the ventilator: a measured respiratory rate below the rate set in a mode that delivers
+ * every set breath (the total rate cannot be lower than the set one, so one of the two is wrong),
+ * and a set rate of 0 in such a mode (no mandatory breath would be given).
  */
+import { MODES_WITH_SET_BREATHS } from '../physiology';
 import { toRange } from '../syntax/tree';
 import { formatShort } from '../util/format';
 import { defineCheck } from './check';
 
-/** Modes in which the ventilator delivers at least the set number of breaths a minute. */
-export const MODES_WITH_SET_BREATHS: ReadonlySet<string> = new Set(['VC', 'PC', 'PRVC', 'SIMV']);
+export { MODES_WITH_SET_BREATHS };
 
 /** A count over a minute may differ by a breath from the setting (our convention). */
 export const RATE_TOLERANCE_PER_MIN = 1;
@@ -42,6 +43,42 @@ export const rateBelowSet = defineCheck({
       message: `Measured respiratory rate ${formatShort(measured)} /min is below the set rate ${formatShort(set)} /min in ${mode}, which delivers every set breath: check both rates.`,
       ...(o.kind === 'carried' || o.kind === 'here' || o.kind === 'header'
         ? { related: [{ range: toRange(o.line, o.span), message: o.kind === 'carried' ? `set rate ${formatShort(set)} /min, carried from here` : `set rate ${formatShort(set)} /min` }] }
+        : {}),
+    });
+  },
+});
+
+export const setRateZero = defineCheck({
+  code: 'PN312',
+  alias: 'set-rate-zero',
+  title: 'Set rate of 0 in a mode with mandatory breaths',
+  severity: 'warning',
+  tags: ['plausibility'],
+  doc: {
+    fires: `The set ventilator rate is 0 in a mode that delivers mandatory breaths (${[...MODES_WITH_SET_BREATHS].join(', ')}): such a mode would give no breath unless the patient triggers one, so the rate or the mode is likely mistyped. Reported where the rate or the mode is written. Spontaneous modes (PS, CPAP) and a vent line without a mode are not reported. Without a measured rate (vitals \`rr\`), minute ventilation and what follows from it (mechanical power, ventilatory ratio) are withheld rather than shown as 0.`,
+    example: '@ 08:00\nvent mode VC, vt 420 mL, rate 0, peep 8',
+    fix: 'Write the set rate (`rate 16`), or the mode the patient is on (`mode PS`) if the breaths are spontaneous. A measured rate on the vitals line gives the minute ventilation.',
+  },
+  source: 'common practice, no source: volume control, pressure control, PRVC and SIMV deliver at least the set number of breaths',
+  runTimepoint(ctx) {
+    const values = ctx.timepoint.values;
+    // Asked without building the values: most timepoints set no rate of 0.
+    if (values.numberOf('vent_rate') !== 0) return;
+    const rateOrigin = values.originOf('vent_rate');
+    if (rateOrigin !== 'here' && values.originOf('mode') !== 'here') return;
+    const mode = values.get('mode');
+    const word = mode?.stated.word ?? null;
+    if (!mode || word === null || !MODES_WITH_SET_BREATHS.has(word)) return;
+    const rate = values.get('vent_rate');
+    if (!rate) return;
+    const here = rate.origin.kind === 'here';
+    const anchor = here ? rate.stated : mode.stated;
+    const o = rate.origin;
+    ctx.report({
+      range: toRange(anchor.line, here ? anchor.item.value?.span ?? anchor.item.span : anchor.item.span),
+      message: `Set rate 0 /min in ${word}, which delivers mandatory breaths: no breath would be given unless the patient triggers one. Check the rate and the mode; minute ventilation is ${values.originOf('rr') === 'here' ? 'worked out from the measured rate' : 'not worked out from a rate of 0'}.`,
+      ...(!here && (o.kind === 'carried' || o.kind === 'header')
+        ? { related: [{ range: toRange(o.line, o.span), message: 'set rate 0 /min, carried from here' }] }
         : {}),
     });
   },

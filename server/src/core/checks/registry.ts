@@ -16,7 +16,7 @@ import { drivingPressureHigh, plateauHigh, tidalVolumeHigh } from './ventilation
 import { peepAbovePlateau, plateauAbovePeak, systolicBelowDiastolic } from './pressure-order';
 import { birthDate, calendarDate, emailAddress, phoneNumber, possibleName, postalCode, recordNumber } from './privacy';
 import { timeGoesBack } from './time-order';
-import { rateBelowSet } from './rate-order';
+import { rateBelowSet, setRateZero } from './rate-order';
 import { flowOnRoomAirCheck } from './room-air-flow';
 import { therapyOverlap } from './therapy-overlap';
 import { unusualBlank } from './unusual-blank';
@@ -47,6 +47,7 @@ export const CHECKS: readonly CheckDef[] = validateCheckList([
   rateBelowSet,
   flowOnRoomAirCheck,
   therapyOverlap,
+  setRateZero,
   pao2AboveAlveolar,
   gasInconsistent,
   tidalVolumeHigh,

@@ -11,7 +11,8 @@ import { decimalsFor, writtenDecimals } from '../present';
 import { convert, unitById, type UnitDef } from '../fields/units';
 import { toRange } from '../syntax/tree';
 import { formatAgainst, formatNumber } from '../util/format';
-import { defineCheck, type CheckContext, type CheckDef } from './check';
+import { derivedValueOf } from '../derive/registry';
+import { defineCheck, type CheckContext, type CheckDef, type TimepointContext } from './check';
 import type { Fix } from '../types';
 
 const OWN_CHECKS = new Set(['fio2']);
@@ -21,18 +22,38 @@ const SATURATIONS = new Set(['spo2', 'sao2', 'svo2']);
  * Runs a per-value test over the header (note scope) and over each timepoint's stated values
  * (timepoint scope, with the barometric pressure in force there when the test reads it).
  */
-function valueCheck(test: (ctx: CheckContext, stated: StatedValue, barometricMmhg: number | null) => void, readsPressure = true): Pick<CheckDef, 'run' | 'runTimepoint'> {
+function valueCheck(test: (ctx: CheckContext, stated: StatedValue, barometricMmhg: number | null, at: TimepointContext | null) => void, readsPressure = true): Pick<CheckDef, 'run' | 'runTimepoint'> {
   return {
     run(ctx) {
-      for (const stated of ctx.analysis.timeline.header) test(ctx, stated, null);
+      for (const stated of ctx.analysis.timeline.header) test(ctx, stated, null, null);
     },
     runTimepoint(ctx) {
       // Read once: a number read from an object for each call would be boxed for each call. A
       // test that does not read it is passed null: no boxed number per check and timepoint.
       const barometricMmhg = readsPressure ? ctx.timepoint.barometricMmhg : null;
-      for (const stated of ctx.timepoint.stated) test(ctx, stated, barometricMmhg);
+      for (const stated of ctx.timepoint.stated) test(ctx, stated, barometricMmhg, ctx);
     },
   };
+}
+
+/**
+ * The usual bounds of a stated value: its field's soft bounds at the barometric pressure in force,
+ * and for a tidal volume at a timepoint, at the patient's body size there (see `softBoundsAt`).
+ */
+function usualBounds(field: FieldDef, barometricMmhg: number | null, at: TimepointContext | null): Bounds | undefined {
+  return softBoundsAt(field, barometricMmhg, field.id === 'vt' && at !== null ? bodySizeKg(at) : null);
+}
+
+/**
+ * The body size a tidal volume is measured against: the smaller of the weight and the predicted
+ * body weight in force (the smaller gives the lower usual minimum, so an obese patient's weight
+ * does not make a lung-protective volume unusual); null when neither is known.
+ */
+function bodySizeKg(at: TimepointContext): number | null {
+  const weight = at.timepoint.values.numberOf('weight');
+  const pbw = derivedValueOf(at.derivation, 'predicted_body_weight')?.value ?? null;
+  const sizes = [weight, pbw].filter((v): v is number => v !== null && v > 0);
+  return sizes.length === 0 ? null : Math.min(...sizes);
 }
 
 /** The unit a value was read in, as a message writes it after a number: ` mmHg`, ` /min`; none for pH or a fraction. */
@@ -111,13 +132,13 @@ export const impossibleValue = defineCheck({
     fix: 'Check the transcription and the unit. Where the number is ordinary in the field\'s other unit (`temp 98.6 C`, `pco2 56 kPa`), a quick fix writes that unit. The bounds of each field and their sources are listed in grammar/README.md.',
   },
   source: 'field registry bounds; each field names its source (mostly common practice, no source)',
-  ...valueCheck((ctx, stated, barometricMmhg) => {
+  ...valueCheck((ctx, stated, barometricMmhg, at) => {
     const field = stated.field;
     // Most values are within bounds: asked first, the rest only of the few that are not.
     if (!field.hard || !outOfBounds(stated, field.hard)) return;
     if (OWN_CHECKS.has(field.id) || stated.readUnit === null || stated.unitDoubt) return;
     if (SATURATIONS.has(field.id) && noneNegative(stated)) return;
-    const fix = otherUnitFix(field, stated, barometricMmhg);
+    const fix = otherUnitFix(field, stated, usualBounds(field, barometricMmhg, at));
     ctx.report({
       range: toRange(stated.line, stated.item.value?.span ?? stated.item.span),
       message: `${asWritten(field, stated)} is impossible (expected ${describe(field.hard, field, stated)}); it is not used in calculations.${fix ? ` In ${fix.unit} it would be ordinary.` : ''}`,
@@ -128,15 +149,16 @@ export const impossibleValue = defineCheck({
 
 /**
  * For a number written with a unit that makes it impossible (`temp 98.6 C`, `pco2 56 kPa`): the
- * field's other unit in which the same number is ordinary (within the hard and usual bounds), and
- * a fix that writes that unit instead. Null when there is none, or more than one (the writer must
+ * field's other unit in which the same number is ordinary (within the hard and the `usual` bounds,
+ * not merely possible: `vt 5 L` is not offered mL, as 5 mL is no usual tidal volume), and a fix
+ * that writes that unit instead. Null when there is none, or more than one (the writer must
  * choose), or the value is a pair or had no unit written (PN204 covers bare numbers).
  */
-function otherUnitFix(field: FieldDef, s: StatedValue, barometricMmhg: number | null): { unit: string; fix: Fix } | null {
+function otherUnitFix(field: FieldDef, s: StatedValue, usual: Bounds | undefined): { unit: string; fix: Fix } | null {
   const unitToken = s.item.unit;
   const written = s.item.number;
   if (!unitToken || written === null || s.unitImplied) return null;
-  const fitting = unitsWithin(field, written, s.readUnit, field.hard, softBoundsAt(field, barometricMmhg));
+  const fitting = unitsWithin(field, written, s.readUnit, field.hard, usual);
   if (fitting.length !== 1) return null;
   const unit = displayUnit(fitting[0]!.id);
   return { unit, fix: { title: `Write ${unit} instead of ${unitToken.text}`, edits: [{ range: toRange(s.line, unitToken.span), newText: unit }] } };
@@ -149,15 +171,16 @@ export const unusualValue = defineCheck({
   severity: 'warning',
   tags: ['plausibility'],
   doc: {
-    fires: 'A value is possible but outside the usual (soft) bounds of its field: worth a second look at the unit or the transcription. Low arterial gas pressures are not flagged where the barometric pressure is below 500 mmHg, since they are real at extreme altitude. A saturation written as a fraction with no unit (`spo2 0.94`) is reported with the percentage offered, and is not used until it is rewritten.',
+    fires: 'A value is possible but outside the usual (soft) bounds of its field: worth a second look at the unit or the transcription. Low arterial gas pressures are not flagged where the barometric pressure is below 500 mmHg, since they are real at extreme altitude. A tidal volume is usual from 2 mL per kg of body size (the smaller of the weight and the predicted body weight in force), or from 50 mL where the note gives neither. A saturation written as a fraction with no unit (`spo2 0.94`) is reported with the percentage offered, and is not used until it is rewritten.',
     example: 'vitals hr 236',
     fix: 'Confirm the value; if it is right, the warning can stay (or the check can be switched off in settings).',
   },
   source: 'field registry bounds; each field names its source (mostly common practice, no source)',
-  ...valueCheck((ctx, stated, barometricMmhg) => {
+  ...valueCheck((ctx, stated, barometricMmhg, at) => {
     const field = stated.field;
-    // Most values are within the usual bounds, which a low barometric pressure only widens: asked first.
-    if (!field.soft || !outOfBounds(stated, field.soft)) return;
+    // Most values are within the usual bounds, which a low barometric pressure only widens: asked
+    // first. A tidal volume's usual minimum follows the body size, which may raise it: asked on.
+    if (!field.soft || (!outOfBounds(stated, field.soft) && field.id !== 'vt')) return;
     if (stated.value !== null && stated.item.number !== null && isSaturationFraction(field, stated.item.number, stated.item)) {
       const written = stated.item.value!;
       const percent = formatNumber(stated.item.number * 100, Math.max(0, writtenDecimals(written.text) - 2));
@@ -171,7 +194,7 @@ export const unusualValue = defineCheck({
     }
     if (OWN_CHECKS.has(field.id) || !stated.usable || stated.readUnit === null || stated.unitDoubt) return;
     if (field.hard && outOfBounds(stated, field.hard)) return;
-    const soft = softBoundsAt(field, barometricMmhg);
+    const soft = usualBounds(field, barometricMmhg, at);
     if (!outOfBounds(stated, soft)) return;
     ctx.report({
       range: toRange(stated.line, stated.item.value?.span ?? stated.item.span),

@@ -11,6 +11,7 @@ import { formatNumber, wordList } from '../util/format';
 import { describeOrigin, kpaResolutionMmhg } from '../present';
 import type { DerivedCategory, DerivedValue, InputOrigin, MissingValue, NotApplicable, Term } from './model';
 import { NONE } from '../util/lists';
+import { MODES_WITH_SET_BREATHS } from '../physiology/mechanics';
 import { keptFor, SmallStore, type Kept } from '../util/small-store';
 
 export type { Term } from './model';
@@ -53,7 +54,7 @@ export type Outcome =
   // The extras by reference: most values give none or one shared object (no copy per value).
   | { readonly kind: 'value'; readonly value: number; readonly terms: readonly Term[]; readonly extras: ValueExtras }
   | { readonly kind: 'missing'; readonly needs: readonly string[] }
-  | { readonly kind: 'na'; readonly reason: string };
+  | { readonly kind: 'na'; readonly reason: string; readonly withheldBy?: string };
 
 export interface DerivedDef {
   readonly id: string;
@@ -227,6 +228,15 @@ export class DeriveContext {
     return d instanceof ComputedValue ? d.asTerm(name ?? d.short) : null;
   }
 
+  /**
+   * For a value computed from another one that a finding withholds (a CaO2 from a PaO2 PN401 says
+   * cannot be, a P/F adjusted for altitude from such a P/F): withheld too, for the same reason.
+   */
+  withheldFrom(id: string): Outcome | null {
+    const r = this.evaluate(id);
+    return r !== null && 'withheldBy' in r && r.withheldBy !== null ? { kind: 'na', reason: r.reason, withheldBy: r.withheldBy } : null;
+  }
+
   derivedValue(id: string): DerivedValue | null {
     const r = this.evaluate(id);
     return r instanceof ComputedValue ? r : null;
@@ -285,9 +295,26 @@ export class DeriveContext {
     return 'fio2 (or an oxygen line)';
   }
 
-  /** Total respiratory rate: measured (vitals) at this timepoint, else the set ventilator rate. */
+  /**
+   * Total respiratory rate: measured (vitals) at this timepoint, else the set ventilator rate. A
+   * set rate of 0 is no rate of breathing (in a spontaneous mode the patient sets the rate; in a
+   * mode with mandatory breaths it is a mistake, PN312): null then, never a minute ventilation of 0.
+   */
   respiratoryRate(): Term | null {
-    return this.field('rr', 'RR') ?? this.field('vent_rate', 'RR (set)');
+    const measured = this.field('rr', 'RR');
+    if (measured) return measured;
+    const set = this.field('vent_rate', 'RR (set)');
+    return set !== null && set.value > 0 ? set : null;
+  }
+
+  /**
+   * Where `respiratoryRate()` has no rate because the set rate is 0 in a mode that delivers
+   * mandatory breaths (PN312): the outcome of a value computed from the rate, withheld; else null.
+   */
+  zeroSetRate(): Outcome | null {
+    if (this.timepoint.values.numberOf('vent_rate') !== 0) return null;
+    const mode = this.word('mode');
+    return mode !== null && MODES_WITH_SET_BREATHS.has(mode.word) ? ZERO_SET_RATE : null;
   }
 
   /** PEEP in force: the ventilator's, else EPAP (NIV), else the CPAP level. */
@@ -373,6 +400,7 @@ function usesCarried(terms: readonly Term[], c: DeriveContext): boolean {
 const VENT_SETTINGS: readonly string[] = ['mode', 'vt', 'vent_rate', 'peep', 'pressure_support'];
 
 const NOT_IN_DOMAIN: Outcome = { kind: 'na', reason: 'the inputs are outside the range where the formula holds' };
+const ZERO_SET_RATE: Outcome = { kind: 'na', reason: 'the set rate is 0 in a mode that delivers mandatory breaths, and no rate is measured (see PN312)', withheldBy: 'PN312' };
 
 
 
@@ -387,7 +415,7 @@ function evaluateDef(def: DerivedDefinition, c: DeriveContext): DerivedValue | M
   // Found after computing: the anchors the formula read are answered from what it read.
   const line = anchorLine(def, c);
   if (outcome.kind === 'missing') return new Missing(def, outcome.needs, line);
-  if (outcome.kind === 'na') return { id: def.id, label: def.label, reason: outcome.reason, line };
+  if (outcome.kind === 'na') return { id: def.id, label: def.label, reason: outcome.reason, line, withheldBy: outcome.withheldBy ?? null };
   return new ComputedValue(def, outcome, usesCarried(outcome.terms, c), line);
 }
 

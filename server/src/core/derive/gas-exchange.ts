@@ -26,6 +26,20 @@ export function isAboveAlveolar(pao2Mmhg: number, alveolarMmhg: number): boolean
   return pao2Mmhg > alveolarMmhg + ALVEOLAR_ROUNDING_MMHG;
 }
 
+/** A value read from a PaO2 above the alveolar PO2 (PN401) is withheld, as the A–a gradient and the readings are. */
+const ABOVE_ALVEOLAR: Outcome = { kind: 'na', reason: 'PaO2 is above the alveolar PO2 (see PN401)', withheldBy: 'PN401' };
+
+/**
+ * `ABOVE_ALVEOLAR` when the PaO2 in force is above the alveolar PO2 the FiO2, pressure and PaCO2
+ * allow (by more than rounding; always where the alveolar PO2 comes out negative), else null:
+ * whatever is computed from that PaO2 (P/F, a/A, the oxygenation index, CaO2) would rest on a value
+ * that cannot be.
+ */
+export function pao2Withheld(c: DeriveContext, pa: Term): Outcome | null {
+  const pA = c.derivedValue('pao2_alveolar');
+  return pA !== null && isAboveAlveolar(pa.value, pA.value) ? ABOVE_ALVEOLAR : null;
+}
+
 export const pao2Alveolar = defineDerived({
   id: 'pao2_alveolar',
   label: 'Alveolar PO2',
@@ -95,10 +109,10 @@ export const aaGradientDef = defineDerived({
     const pA = c.derived('pao2_alveolar', 'PAO2');
     const pa = c.field('pao2', 'PaO2');
     if (!pA || !pa) return c.missing([pa, 'po2'], [pA, c.lacking('pao2_alveolar')]);
-    if (pA.value < 0) return { kind: 'na', reason: `the alveolar PO2 comes out negative (${Math.round(pA.value)} mmHg): this FiO2, pressure and PaCO2 cannot go together (see PN401)` };
+    if (pA.value < 0) return { kind: 'na', reason: `the alveolar PO2 comes out negative (${Math.round(pA.value)} mmHg): this FiO2, pressure and PaCO2 cannot go together (see PN401)`, withheldBy: 'PN401' };
     const g = aaGradient(pA.value, pa.value);
     if (g === null) return c.value(null, []);
-    if (g < -ALVEOLAR_ROUNDING_MMHG) return { kind: 'na', reason: `PaO2 ${Math.round(pa.value)} mmHg is above the alveolar PO2 ${Math.round(pA.value)} mmHg that the stated FiO2 and pressure allow (see PN401)` };
+    if (g < -ALVEOLAR_ROUNDING_MMHG) return { kind: 'na', reason: `PaO2 ${Math.round(pa.value)} mmHg is above the alveolar PO2 ${Math.round(pA.value)} mmHg that the stated FiO2 and pressure allow (see PN401)`, withheldBy: 'PN401' };
     if (g < 0) return c.value(0, [pA, pa], { notes: ['PaO2 within rounding of the alveolar PO2: gradient shown as 0'] });
     // Shown beside its upper normal for age: with the decimals that keep it on its side of it.
     const upper = upperNormalFor(c);
@@ -153,7 +167,7 @@ export const aToARatio = defineDerived({
     const pa = c.field('pao2', 'PaO2');
     const pA = c.derived('pao2_alveolar', 'PAO2');
     if (!pa || !pA) return c.missing([pa, 'po2'], [pA, c.lacking('pao2_alveolar')]);
-    if (isAboveAlveolar(pa.value, pA.value)) return { kind: 'na', reason: 'PaO2 is above the alveolar PO2 (see PN401)' };
+    if (isAboveAlveolar(pa.value, pA.value)) return ABOVE_ALVEOLAR;
     return c.value(arterialAlveolarRatio(pa.value, pA.value), [pa, pA]);
   },
 });
@@ -172,7 +186,7 @@ export const pfRatioDef = defineDerived({
     const pa = c.field('pao2', 'PaO2');
     const fio2 = c.fio2();
     if (!pa || !fio2) return c.missing([pa, 'po2'], [fio2, c.fio2Need()]);
-    return c.value(pfRatio(pa.value, fio2.value), [pa, fio2]);
+    return pao2Withheld(c, pa) ?? c.value(pfRatio(pa.value, fio2.value), [pa, fio2]);
   },
 });
 
@@ -189,6 +203,9 @@ export const pfRatioAltitude = defineDerived({
   compute(c) {
     const pf = c.derived('pf_ratio', 'P/F');
     const pb = c.derived('barometric', 'PB');
+    // A P/F withheld (PN401) withholds its adjustment, where there would be one (below sea level).
+    const withheld = pf ? null : c.withheldFrom('pf_ratio');
+    if (withheld) return !pb ? c.missing() : pb.value >= SEA_LEVEL_MMHG - 20 ? NEAR_SEA_LEVEL : withheld;
     if (!pf || !pb) return c.missing([pf, c.lacking('pf_ratio')]);
     if (pb.value >= PF_ADJUSTED_BELOW_MMHG) return NEAR_SEA_LEVEL;
     return c.value(pfRatioAltitudeAdjusted(pf.value, pb.value), [pf, pb]);
@@ -263,7 +280,7 @@ export const oxygenationIndexDef = defineDerived({
     const pa = c.field('pao2', 'PaO2');
     if (!map && !c.statedHere('mean_airway_pressure')) return { kind: 'na', reason: 'needs a mean airway pressure (map on the vent line)' };
     if (!fio2 || !map || !pa) return c.missing([fio2, 'fio2'], [map, 'map'], [pa, 'po2']);
-    return c.value(oxygenationIndex(fio2.value, map.value, pa.value), [fio2, map, pa]);
+    return pao2Withheld(c, pa) ?? c.value(oxygenationIndex(fio2.value, map.value, pa.value), [fio2, map, pa]);
   },
 });
 

@@ -31,7 +31,9 @@ export const minuteVentilation = defineDerived({
     const vt = c.field('vt', 'VT');
     const rr = c.respiratoryRate();
     if (!vt) return { kind: 'na', reason: 'needs a tidal volume' };
-    if (!rr) return c.missing([rr, 'rr']);
+    // A set rate of 0 gives no minute ventilation of 0: withheld where it is a mistake (PN312),
+    // else a measured rate is asked for (in a spontaneous mode the patient sets the rate).
+    if (!rr) return c.zeroSetRate() ?? c.missing([rr, 'rr']);
     return c.value(minuteVentilationLPerMin(vt.value, rr.value), [vt, rr]);
   },
 });
@@ -178,6 +180,10 @@ export const mechanicalPower = defineDerived({
     const plat = c.field('plateau', 'Pplat');
     const peep = c.field('peep', 'PEEP');
     if (!peak || !plat) return { kind: 'na', reason: 'needs peak and plateau pressures' };
+    if (!rr) {
+      const withheld = c.zeroSetRate();
+      if (withheld) return withheld;
+    }
     if (!rr || !vt || !peep) return c.missing([rr, 'rr'], [vt, 'vt'], [peep, 'peep']);
     return c.value(mechanicalPowerSimplified(rr.value, vt.value, peak.value, plat.value, peep.value), [rr, vt, peak, plat, peep]);
   },
@@ -201,6 +207,10 @@ export const mechanicalPowerSurrogateDef = defineDerived({
     const peep = c.field('peep', 'PEEP');
     const flow = c.field('insp_flow', 'flow');
     if (!peak || !flow) return { kind: 'na', reason: 'needs the peak pressure and the inspiratory flow' };
+    if (!ve) {
+      const withheld = c.withheldFrom('minute_ventilation');
+      if (withheld) return withheld;
+    }
     if (!ve || !peep) return c.missing([ve, c.lacking('minute_ventilation')], [peep, 'peep']);
     return c.value(mechanicalPowerSurrogate(ve.value, peak.value, peep.value, flow.value), [ve, peak, peep, flow]);
   },
@@ -221,6 +231,10 @@ export const ventilatoryRatioDef = defineDerived({
     const ve = c.field('minute_volume', 'VE') ?? c.derived('minute_ventilation', 'VE');
     const paco2 = c.field('paco2', 'PaCO2');
     const p = c.derived('predicted_body_weight', 'PBW');
+    if (!ve) {
+      const withheld = c.withheldFrom('minute_ventilation');
+      if (withheld) return withheld;
+    }
     if (!ve || !paco2 || !p) return c.missing([ve, c.lacking('minute_ventilation')], [paco2, 'pco2'], [p, c.lacking('predicted_body_weight')]);
     return c.value(ventilatoryRatio(ve.value * 1000, paco2.value, p.value), [ve, paco2, p]);
   },

@@ -67,6 +67,23 @@ export interface NotApplicable {
   readonly label: string;
   readonly reason: string;
   readonly line: number | null;
+  /**
+   * The code of the finding that withholds the value (PN401: the PaO2 cannot be), when it could be
+   * computed but its inputs contradict each other: what people read says where it would have been
+   * (`WITHHELD_BECAUSE`). Null for a formula that merely does not apply here.
+   */
+  readonly withheldBy: string | null;
+}
+
+/** Why values are withheld, by the code of the finding that withholds them: a clause for what people read. */
+export const WITHHELD_BECAUSE: Readonly<Record<string, string>> = {
+  PN401: 'the PaO2 is above the alveolar PO2 that the FiO2, pressure and PaCO2 in force allow (see PN401)',
+  PN312: 'the set rate of 0 cannot be right in a mode that delivers mandatory breaths, and no rate is measured (see PN312)',
+};
+
+/** `withheld: the PaO2 is above … (see PN401)`, or the reason itself for a finding not listed. */
+export function withheldText(n: NotApplicable): string {
+  return n.withheldBy !== null ? WITHHELD_BECAUSE[n.withheldBy] ?? n.reason : n.reason;
 }
 
 export type InterpretationTopic = 'oxygenation' | 'oxygenation-band' | 'ventilation' | 'respiratory-failure' | 'hypoxaemia-mechanism' | 'acid-base';

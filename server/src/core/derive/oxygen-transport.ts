@@ -1,6 +1,7 @@
 /** Derived values of oxygen transport, and the low-flow FiO2 estimate. */
 import { SOURCES, arterialO2Content, fio2EstimateLowFlow, oxygenDelivery } from '../physiology';
 import { defineDerived, type Term } from './context';
+import { pao2Withheld } from './gas-exchange';
 
 export const cao2 = defineDerived({
   id: 'cao2',
@@ -18,6 +19,8 @@ export const cao2 = defineDerived({
     const pa = c.field('pao2', 'PaO2');
     if (!hb) return { kind: 'na', reason: 'needs a haemoglobin' };
     if (!sat || !pa) return c.missing([sat, 'sao2'], [pa, 'po2']);
+    const withheld = pao2Withheld(c, pa);
+    if (withheld) return withheld;
     const hufner: Term = { name: 'Hüfner', value: c.settings.hufnerConstant, unit: 'mL/g', decimals: 2, origin: { kind: 'default', description: 'Hüfner constant (setting pneumark.hufnerConstant)' } };
     const notes = sat.fieldId === 'spo2' ? ['SpO2 used in place of SaO2'] : [];
     return c.value(arterialO2Content(hb.value, sat.value / 100, pa.value, hufner.value), [hufner, hb, sat, pa], { notes });
@@ -38,7 +41,7 @@ export const do2 = defineDerived({
     const co = c.field('cardiac_output', 'CO');
     const content = c.derived('cao2', 'CaO2');
     if (!co) return { kind: 'na', reason: 'needs a cardiac output (co on the vitals line)' };
-    if (!content) return c.missing([content, c.lacking('cao2')]);
+    if (!content) return c.withheldFrom('cao2') ?? c.missing([content, c.lacking('cao2')]);
     return c.value(oxygenDelivery(co.value, content.value), [co, content]);
   },
 });

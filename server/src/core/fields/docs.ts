@@ -2,6 +2,7 @@
  * The table of sections, keys and units in grammar/README.md, generated from the registry
  * (between the `fields:start` and `fields:end` markers). A test fails when it is stale.
  */
+import { VT_USUAL_MIN_ML_PER_KG } from '../analysis/bounds';
 import { displayUnit } from '../analysis/read-value';
 import { FIELDS, loincCodesOf, loincFor, type FieldDef, type LoincCode } from './registry';
 import { SECTIONS } from './sections';
@@ -97,7 +98,13 @@ export function renderFieldTable(): string {
   }
   out.push(...renderUnitTable());
   out.push(...renderLoincTable());
-  out.push('Bounds are in the first unit listed. Sources of the bounds: see `boundsSource` in `server/src/core/fields/registry.ts` (most are common practice, no single source).', '', FIELD_TABLE_END);
+  out.push(
+    'Bounds are in the first unit listed. Sources of the bounds: see `boundsSource` in `server/src/core/fields/registry.ts` (most are common practice, no single source).',
+    '',
+    `A tidal volume's usual minimum follows the patient's size: ${VT_USUAL_MIN_ML_PER_KG} mL per kg of the smaller of the weight and the predicted body weight in force; the table's 50 mL applies where the note gives neither. An impossible value is offered another unit only where the number is usual in it (\`vt 450 L\` is offered mL, \`vt 5 L\` is not).`,
+    '',
+    FIELD_TABLE_END,
+  );
   return out.join('\n');
 }
 

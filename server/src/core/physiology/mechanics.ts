@@ -33,6 +33,13 @@ export const SOURCES = Object.freeze({
 
 export type Sex = 'male' | 'female';
 
+/**
+ * Ventilator modes that deliver mandatory breaths, at least the set number a minute: volume
+ * control, pressure control, PRVC and SIMV (common practice, no source). Pressure support and
+ * CPAP deliver none; APRV and HFOV are set otherwise.
+ */
+export const MODES_WITH_SET_BREATHS: ReadonlySet<string> = new Set(['VC', 'PC', 'PRVC', 'SIMV']);
+
 /** Plateau pressure limit of the ARDS Network protocol (cmH2O). Source: `ardsnet-2000-plateau`. */
 export const PLATEAU_LIMIT_CMH2O = 30;
 

@@ -5,7 +5,9 @@
  * `ΔP 17 · VT 6.7 mL/kg · Cstat 25` after a vent line with a plateau, `PB 628 mmHg` after a
  * place line with an altitude, `FiO2 ≈ 0.33 (est.)` after a low-flow oxygen line, and a short
  * acid–base reading (`resp. acidosis, acute`). A value that uses an input carried forward from
- * an earlier timepoint ends with `*`; its tooltip names the carried inputs.
+ * an earlier timepoint ends with `*`; its tooltip names the carried inputs. A value a finding
+ * withholds (P/F where PN401 says the PaO2 cannot be) is named where it would have been:
+ * `P/F, A–a withheld (PN401)`, with the reason in the tooltip.
  *
  * One hint per line and category, in the order of HINT_CATEGORIES; a later hint at the same
  * position starts with `· ` so that the hints read as one list. To show one more value, add a
@@ -13,14 +15,14 @@
  */
 import type { Timepoint } from '../analysis/model';
 import type { NoteResult } from '../check-note';
-import type { DerivedValue, Interpretation, Term, TimepointDerivation } from '../derive/model';
+import { withheldText, type DerivedValue, type Interpretation, type NotApplicable, type Term, type TimepointDerivation } from '../derive/model';
 import { kpaFirstCompact, kpaNumber } from '../present';
 import { formatNumber } from '../util/format';
 import { derivedBody, derivedInKpa, termText } from './derived-hover';
 import { contentEnd, isHeaderLine, lineAt } from './locate';
 import { cautionLine, escapeMarkdown, paragraphs } from './markdown';
 import { describeInputOrigin } from '../derive/context';
-import { derivationOf, derivedAt } from '../derive/registry';
+import { derivationOf, derivedAt, derivedDef } from '../derive/registry';
 import { HINT_CATEGORIES, type HintCategory, type InlayHintInfo, type LineSpan } from './types';
 
 export interface HintOptions {
@@ -101,6 +103,8 @@ export const ACID_BASE_READING_ID = 'interpretation:acid-base';
 interface Entry {
   readonly label: string;
   readonly values: readonly DerivedValue[];
+  /** Values a finding withholds, named where they would have been. */
+  readonly withheld: readonly NotApplicable[];
   readonly reading: Interpretation | null;
   readonly derivation: TimepointDerivation;
   /** The timepoint whose gas unit the tooltip follows (on a header line, as the header shows it). */
@@ -147,7 +151,7 @@ export function inlayHints(result: NoteResult, lines: LineSpan, options: HintOpt
           const label = acidBaseLabel(reading.text);
           if (!label) continue;
           const detail = all.filter((d) => ACID_BASE_DETAIL.includes(d.id) && d.line === reading.line);
-          add(reading.line, category, { label, values: detail, reading, derivation, timepoint: tp });
+          add(reading.line, category, { label, values: detail, withheld: NONE_WITHHELD, reading, derivation, timepoint: tp });
         }
       }
       for (const pick of HINT_PICKS[category]) {
@@ -163,9 +167,10 @@ export function inlayHints(result: NoteResult, lines: LineSpan, options: HintOpt
           const label = pick.text(n, d, all.filter((v) => v.line === d.line), kpa);
           if (!label) continue;
           shown.add(`${line}:${d.id}`);
-          add(line, category, { label, values: [d], reading: null, derivation, timepoint: shownAt });
+          add(line, category, { label, values: [d], withheld: NONE_WITHHELD, reading: null, derivation, timepoint: shownAt });
         }
       }
+      if (!outside) addWithheld(derivation, category, inRange, shown, (line, entry) => add(line, category, { ...entry, timepoint: tp }));
     }
   }
 
@@ -185,12 +190,43 @@ export function inlayHints(result: NoteResult, lines: LineSpan, options: HintOpt
         first ? label : `· ${label}`,
         entries,
         category,
-        entries.flatMap((e) => (e.reading ? [ACID_BASE_READING_ID, ...e.values.map((v) => v.id)] : e.values.map((v) => v.id))),
+        entries.flatMap((e) => (e.reading ? [ACID_BASE_READING_ID, ...e.values.map((v) => v.id)] : [...e.values.map((v) => v.id), ...e.withheld.map((n) => n.id)])),
       ));
       first = false;
     }
   }
   return hints;
+}
+
+const NONE_WITHHELD: readonly NotApplicable[] = [];
+
+/**
+ * The values of a category's picks that a finding withholds at this timepoint, one entry per line
+ * and finding: `P/F, A–a withheld (PN401)`, where the values would have been.
+ */
+function addWithheld(
+  derivation: TimepointDerivation,
+  category: HintCategory,
+  inRange: (line: number | null) => line is number,
+  shown: Set<string>,
+  add: (line: number, entry: Omit<Entry, 'timepoint'>) => void,
+): void {
+  const groups = new Map<string, NotApplicable[]>();
+  for (const pick of HINT_PICKS[category]) {
+    for (const n of derivation.notApplicable) {
+      if (n.id !== pick.id || n.withheldBy === null || !inRange(n.line) || shown.has(`${n.line}:${n.id}`)) continue;
+      shown.add(`${n.line}:${n.id}`);
+      const key = `${n.line}:${n.withheldBy}`;
+      const list = groups.get(key);
+      if (list) list.push(n);
+      else groups.set(key, [n]);
+    }
+  }
+  for (const list of groups.values()) {
+    const first = list[0]!;
+    const names = list.map((n) => derivedDef(n.id)?.short ?? n.label).join(', ');
+    add(first.line!, { label: `${names} withheld (${first.withheldBy})`, values: [], withheld: list, reading: null, derivation });
+  }
 }
 
 /**
@@ -235,6 +271,7 @@ function tooltip(entries: readonly Entry[]): string {
   const parts: string[] = [];
   for (const e of entries) {
     if (e.reading) parts.push(`**Acid–base reading**: ${escapeMarkdown(e.reading.text)}`);
+    for (const n of e.withheld) parts.push(`**${escapeMarkdown(n.label)}**: withheld, as ${escapeMarkdown(withheldText(n))}.`);
     for (const d of e.values) {
       const carried = carriedInputs(d, e.derivation);
       const mark = carried.length > 0

@@ -9,7 +9,7 @@
 import type { NoteResult } from '../check-note';
 import type { StatedValue, Timepoint } from '../analysis/model';
 import { displayUnit } from '../analysis/read-value';
-import type { DerivedValue, TimepointDerivation } from '../derive/model';
+import { withheldText, type DerivedValue, type NotApplicable, type TimepointDerivation } from '../derive/model';
 import { derivedDef } from '../derive/registry';
 import { shortAsName } from '../derive/context';
 import { fieldFor, fieldsInSection, loincFor, type FieldDef } from '../fields/registry';
@@ -213,8 +213,13 @@ function feedsText(result: NoteResult, s: StatedValue): string | null {
   const derivation = derivationOf(result, tp);
   if (!derivation) return null;
   const uses = derivation.derived.filter((d) => d.inputs.some((t) => t.fieldId === s.fieldId && t.origin.kind !== 'derived' && t.origin.kind !== 'default' && t.origin.line === s.line));
-  if (uses.length === 0) return null;
-  return `Used here for: ${uses.map((d) => `${escapeMarkdown(d.short)} ${escapeMarkdown(derivedValueText(d, tp))}`).join(' · ')}`;
+  // Values this one would feed (it is one of their main inputs, on their line) but a finding withholds.
+  const withheld = derivation.notApplicable.filter((n) => n.withheldBy !== null && n.line === s.line && (derivedDef(n.id)?.anchors.includes(s.fieldId) ?? false));
+  const parts = [
+    uses.length > 0 ? `Used here for: ${uses.map((d) => `${escapeMarkdown(d.short)} ${escapeMarkdown(derivedValueText(d, tp))}`).join(' · ')}` : null,
+    ...withheldParagraphs(withheld),
+  ].filter((p): p is string => p !== null);
+  return parts.length > 0 ? parts.join('\n\n') : null;
 }
 
 function carryText(field: FieldDef, section: SectionId): string {
@@ -272,6 +277,19 @@ function timeParagraph(node: TimepointLine, tp: Timepoint | null, written: strin
   return `Time: ${clockText(t.minutes)} (${offset}${since}).`;
 }
 
+/** `Withheld here: P/F, a/A — the PaO2 is above … (see PN401).`, one paragraph per reason. */
+function withheldParagraphs(withheld: readonly NotApplicable[]): string[] {
+  const groups = new Map<string, string[]>();
+  for (const n of withheld) {
+    const why = withheldText(n);
+    const name = derivedDef(n.id)?.short ?? n.label;
+    const list = groups.get(why);
+    if (list) list.push(name);
+    else groups.set(why, [name]);
+  }
+  return [...groups].map(([why, names]) => `Withheld here: ${escapeMarkdown(names.join(', '))} — ${escapeMarkdown(why)}.`);
+}
+
 function derivedLine(d: DerivedValue, tp: Timepoint): string {
   const marks = [d.estimate ? 'estimate' : null, d.usesCarried ? 'uses a carried value' : null].filter((m): m is string => m !== null);
   return `- ${escapeMarkdown(d.label)} (${escapeMarkdown(d.short)}): **${escapeMarkdown(derivedValueText(d, tp))}**${escapeMarkdown(otherSystemText(d, tp))}${marks.length > 0 ? ` — _${marks.join(', ')}_` : ''}`;
@@ -307,6 +325,8 @@ function timepointHover(result: NoteResult, node: TimepointLine, start: number, 
     if (derivation) {
       const shown = derivation.derived.filter((d) => d.id !== 'barometric' || d.inputs[0]?.origin.kind !== 'default');
       if (shown.length > 0) parts.push(`**Derived here**\n${shown.map((d) => derivedLine(d, tp)).join('\n')}`);
+      const withheld = derivation.notApplicable.filter((n) => n.withheldBy !== null);
+      if (withheld.length > 0) parts.push(`**Withheld**\n${withheld.map((n) => `- ${escapeMarkdown(n.label)} (${escapeMarkdown(derivedDef(n.id)?.short ?? n.id)}): ${escapeMarkdown(withheldText(n))}`).join('\n')}`);
       if (derivation.interpretations.length > 0) parts.push(`**Readings**\n${derivation.interpretations.map((i) => `- ${escapeMarkdown(i.text)}`).join('\n')}`);
       const missing = missingGroups(derivation);
       if (missing.length > 0) parts.push(`**Could be derived**\n${missing.map((m) => `- ${escapeMarkdown(m)}`).join('\n')}`);
