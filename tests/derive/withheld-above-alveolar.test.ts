@@ -10,6 +10,7 @@ import { checkNote } from '../../server/src/core/check-note';
 import { timepointRows } from '../../server/src/core/export';
 import { HINT_CATEGORIES, hoverAt, inlayHints, type HintCategory } from '../../server/src/core/service';
 import { renderDerived } from '../../server/src/cli/render-derived';
+import { Legend } from '../../server/src/cli/render-legend';
 import { paint } from '../../server/src/cli/colour';
 import { noteAt } from '../service/cursor';
 
@@ -81,9 +82,12 @@ describe('values computed from a PaO2 that PN401 says cannot be', () => {
 
   it('`show`: one line names the values withheld and why, and the derived line has none of them', () => {
     const result = checkNote(impossible);
-    const lines = renderDerived(result.analysis.timeline.timepoints[0]!, result.analysis.derivation(0), paint(false));
+    const legend = new Legend();
+    const lines = renderDerived(result.analysis.timeline.timepoints[0]!, result.analysis.derivation(0), paint(false), legend);
     expect(lines).toContain('  withheld A–a · a/A · P/F · OI · CaO2 · DO2: the PaO2 is above the alveolar PO2 that the FiO2, pressure and PaCO2 in force allow (see PN401)');
     expect(lines.find((l) => l.includes('derived'))).not.toMatch(/P\/F|CaO2|OI/);
+    // The legend explains the short names of the withheld values too.
+    expect(legend.lines(paint(false)).join('\n')).toMatch(/^ {2}OI +Oxygenation index/m);
   });
 
   it('export: the cells of the withheld values are empty, the PaO2 itself is exported as written', () => {
