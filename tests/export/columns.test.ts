@@ -176,6 +176,20 @@ describe('cells', () => {
     const r = timepointRows(s.path, s.result, plain);
     expect(r.map((x) => [x.findings_errors, x.findings_warnings, x.findings_information])).toEqual([[0, 1, 3], [0, 0, 3], [0, 0, 3], [0, 0, 2]]);
   });
+
+  it('leave out findings of header lines among the lines of an implicit first timepoint, as of any header line', () => {
+    // Lines 1, 4 and 5 are the header (patient and units lines before the first `@`), also after
+    // the vitals line that opened the implicit first timepoint; lines 2 and 3 belong to it.
+    const note = 'patient age 50, qq 3\nvitalz hr 80\nvitals hr 80 zz 4\npatient age 500\nunits gas kPa\n@ day 1 08:00 a\nvitals hr 70';
+    const result = checked(note);
+    expect(result.findings.map((f) => [f.code, f.range.start.line + 1])).toEqual([['PN201', 1], ['PN101', 2], ['PN201', 3], ['PN206', 4], ['PN204', 4]]);
+    const r = timepointRows('a.pneu', result, plain);
+    expect(r.map((x) => [x.findings_errors, x.findings_warnings])).toEqual([[2, 0], [0, 0]]);
+    expect(findingsByTimepoint(result).map((list) => list.map((f) => f.range.start.line + 1))).toEqual([[2, 3], []]);
+    // With an `@` first, the header's findings belong to no row either.
+    const explicit = checked('patient age 50, qq 3\n@ day 1 08:00\nvitals hr 80 zz 4');
+    expect(timepointRows('b.pneu', explicit, plain).map((x) => x.findings_errors)).toEqual([1]);
+  });
 });
 
 describe('options', () => {

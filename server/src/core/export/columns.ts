@@ -28,7 +28,8 @@
  * - carried_fields lists, `;`-joined in registry order, the fields whose cell in this row holds
  *   a value carried from an earlier timepoint (header values are not "carried").
  * - The findings counts cover the findings that start on this timepoint's lines (from its `@`
- *   line to the line before the next timepoint); findings on header lines belong to no row.
+ *   line to the line before the next timepoint); findings on header lines belong to no row, also
+ *   those of a patient, place or units line among the lines of an implicit first timepoint.
  *
  * - label is the text written after the timepoint's time, empty when there is none.
  *
@@ -43,6 +44,7 @@ import type { DerivedValue } from '../derive/model';
 import { SEA_LEVEL_MMHG } from '../derive/atmosphere';
 import { DERIVED } from '../derive/registry';
 import { FIELDS, type FieldDef } from '../fields/registry';
+import { sectionById } from '../fields/sections';
 import type { Finding } from '../types';
 import { ucumCode, unitForPeople, unitSlug } from './units';
 
@@ -323,9 +325,20 @@ export function assertExportOptions(options: ExportOptions): void {
   if (!Number.isSafeInteger(options.shiftDays)) throw new RangeError(`shiftDays must be a whole number of days, not ${options.shiftDays}`);
 }
 
-/** Findings that start on a timepoint's lines, in the order of the result. */
+/**
+ * Whether a line of a timepoint is a header line: a patient, place or units line before the first
+ * `@`, which the implicit first timepoint's lines (from the first line with content) may include.
+ */
+function isHeaderLine(result: NoteResult, timepoint: Timepoint, line: number): boolean {
+  if (timepoint.line !== null) return false;
+  const lines = result.analysis.tree.lines;
+  const node = lines[line]?.line === line ? lines[line] : lines.find((l) => l.line === line);
+  return node?.kind === 'section' && sectionById(node.section).kind === 'header';
+}
+
+/** Findings that start on a timepoint's lines (header lines left out), in the order of the result. */
 export function findingsOfTimepoint(result: NoteResult, timepoint: Timepoint): Finding[] {
-  return result.findings.filter((f) => f.range.start.line >= timepoint.startLine && f.range.start.line <= timepoint.endLine);
+  return result.findings.filter((f) => f.range.start.line >= timepoint.startLine && f.range.start.line <= timepoint.endLine && !isHeaderLine(result, timepoint, f.range.start.line));
 }
 
 /**
@@ -351,7 +364,7 @@ export function findingsByTimepoint(result: NoteResult): Finding[][] {
         break;
       }
     }
-    if (found >= 0) out[found]?.push(f);
+    if (found >= 0 && !isHeaderLine(result, timepoints[found]!, line)) out[found]?.push(f);
   }
   return out;
 }
