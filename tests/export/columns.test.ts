@@ -133,6 +133,14 @@ describe('cells', () => {
     expect(rowsOf('@ day 1 08:00\nabg po2 80\n@ +1h\nunits gas kPa\nabg po2 10').map((r) => r.gas_unit)).toEqual(['mmHg', 'kPa']);
   });
 
+  it('give a FiO2 written as a percentage the same number as one written as a fraction (70 % is 0.7, not 0.7000000000000001)', () => {
+    const written = ['fio2 70 %', 'fio2 0.7', 'fio2 70', 'fio2 35 %', 'fio2 0.35'];
+    const r = rowsOf(written.map((w, i) => `@ day 1 0${i}:00\noxygen venturi, ${w}\nabg po2 70`).join('\n'));
+    expect(r.map((x) => x.fio2_fraction)).toEqual([0.7, 0.7, 0.7, 0.35, 0.35]);
+    expect(r.map((x) => x.pf_ratio)).toEqual([100, 100, 100, 200, 200]);
+    expect(rowsOf('@ day 1 08:00\nlabs albumin 34 g/L, hb 123 g/L').map((x) => [x.albumin_g_dL, x.hb_g_dL])).toEqual([[3.4, 12.3]]);
+  });
+
   it('leave out a value Pneumark does not use (SpO2 104 % is impossible)', () => {
     expect(rows[0]?.spo2_pct).toBeNull();
     expect(rows[0]?.findings_errors).toBeGreaterThan(0);
