@@ -436,6 +436,15 @@ describe('time', () => {
     }
   });
 
+  it('an anchor offset is at most 14:00 either way, as a FHIR dateTime allows (its pattern: 00:00 to 13:59, or 14:00)', () => {
+    for (const good of ['2024-03-01T00:00+14:00', '2024-03-01T00:00-14:00', '2024-03-01T00:00+13:59', '2024-03-01T00:00-00:00']) {
+      expect(anchorProblem(good), good).toBeNull();
+      const bundle = toFhirBundle('a.pneu', result, { anchor: good, redactProse: false, shiftDays: 0 });
+      expect(validator.validate(bundle, true), good).toEqual([]);
+    }
+    for (const bad of ['2024-03-01T00:00+14:30', '2024-03-01T00:00-14:59', '2024-03-01T00:00+12:60']) expect(anchorProblem(bad), bad).not.toBeNull();
+  });
+
   it('an anchor that is not 00:00 is refused rather than moving every clock time of the note by its time', () => {
     // `@ day 1 08:00` with an anchor of 08:00 would otherwise be written as 16:00.
     for (const bad of ['2024-03-01T08:00:00Z', '2024-03-01T00:01Z', '2024-03-01T00:00:30+01:00', '2024-03-01T00:00:00.250-03:00']) {

@@ -280,7 +280,10 @@ function parseAnchor(anchor: string): Anchor | string {
   const zone = m[8] ?? 'Z';
   const wallMs = Date.UTC(year, month - 1, day, hour, minute, second, ms);
   const back = new Date(wallMs);
-  const zoneOk = zone === 'Z' || (Number(zone.slice(1, 3)) <= 14 && Number(zone.slice(4, 6)) < 60);
+  // Offsets run from -14:00 to +14:00, as FHIR's dateTime pattern has them (+14:30 is no zone, and not FHIR).
+  const zoneHours = Number(zone.slice(1, 3));
+  const zoneMinutes = Number(zone.slice(4, 6));
+  const zoneOk = zone === 'Z' || (zoneMinutes < 60 && (zoneHours < 14 || (zoneHours === 14 && zoneMinutes === 0)));
   if (year < 1 || back.getUTCFullYear() !== year || back.getUTCMonth() !== month - 1 || back.getUTCDate() !== day || hour > 23 || minute > 59 || second > 59 || !zoneOk) {
     return `the anchor \`${anchor}\` is not a valid date and time`;
   }
