@@ -133,6 +133,16 @@ describe('cells', () => {
     expect(rowsOf('@ day 1 08:00\nabg po2 80\n@ +1h\nunits gas kPa\nabg po2 10').map((r) => r.gas_unit)).toEqual(['mmHg', 'kPa']);
   });
 
+  it('describe the delta ratio by the columns it is computed from: the albumin-corrected gap when there is one (Rastegar A, JASN 2007;18:2429–2431, from memory; Figge J et al., Crit Care Med 1998;26:1807–1810, from memory)', () => {
+    // AG 140 − (100 + 20) = 20; corrected 20 + 2.5 × (4.0 − 3.0) = 22.5; (22.5 − 12) ÷ (24 − 20) = 2.625.
+    const [row] = rowsOf('@ day 1 08:00\nlabs na 140, cl 100, hco3 20, albumin 3.0');
+    expect([row?.anion_gap_mmol_L, row?.anion_gap_albumin_corrected_mmol_L, row?.delta_ratio]).toEqual([20, 22.5, 2.625]);
+    const description = exportColumns().find((c) => c.name === 'delta_ratio')?.description ?? '';
+    expect(description).toContain('`anion_gap_albumin_corrected_mmol_L`');
+    const [plain] = rowsOf('@ day 1 08:00\nlabs na 140, cl 100, hco3 20');
+    expect(plain?.delta_ratio).toBe((20 - 12) / (24 - 20));
+  });
+
   it('give a FiO2 written as a percentage the same number as one written as a fraction (70 % is 0.7, not 0.7000000000000001)', () => {
     const written = ['fio2 70 %', 'fio2 0.7', 'fio2 70', 'fio2 35 %', 'fio2 0.35'];
     const r = rowsOf(written.map((w, i) => `@ day 1 0${i}:00\noxygen venturi, ${w}\nabg po2 70`).join('\n'));

@@ -208,10 +208,13 @@ function fieldColumns(field: FieldDef, index: number): Column[] {
 
 /**
  * Descriptions of derived values whose formula is the value itself (`{PB}`), which would say
- * nothing: where the value comes from instead.
+ * nothing, or does not say which column an input is: where the value comes from instead.
  */
 const WHERE_FROM: Readonly<Record<string, string>> = {
   barometric: `Barometric pressure (PB) the calculations use: as stated on a place line, else estimated from the altitude (the barometricModel setting), else ${SEA_LEVEL_MMHG} mmHg (sea level).`,
+  // The derivation takes the albumin-corrected gap where there is one: the formula's {AG} alone would
+  // send a reader recomputing the column to `anion_gap_mmol_L`, and to another number.
+  delta_ratio: 'Delta ratio (Δ ratio), derived: ({AG} − 12) ÷ (24 − {HCO3}), where {AG} is the anion gap corrected for albumin (`anion_gap_albumin_corrected_mmol_L`) when albumin is known, else the anion gap (`anion_gap_mmol_L`).',
 };
 
 function derivedColumns(def: (typeof DERIVED)[number], fieldIds: ReadonlySet<string>): Column[] {
