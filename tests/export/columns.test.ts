@@ -143,6 +143,17 @@ describe('cells', () => {
     expect(plain?.delta_ratio).toBe((20 - 12) / (24 - 20));
   });
 
+  it('describe the anion gap by the HCO3 column it uses: the serum bicarbonate, else the gas HCO3 (common practice, no source)', () => {
+    // Serum 20 beside a gas HCO3 of 24: 140 − (100 + 20) = 20; the gas HCO3 alone: 140 − (100 + 24) = 16.
+    const [both] = rowsOf('@ day 1 08:00\nabg 7.40/40/90/24\nlabs na 140, cl 100, hco3 20');
+    expect([both?.hco3_mmol_L, both?.hco3_serum_mmol_L, both?.anion_gap_mmol_L]).toEqual([24, 20, 20]);
+    const [gasOnly] = rowsOf('@ day 1 08:00\nabg 7.40/40/90/24\nlabs na 140, cl 100');
+    expect(gasOnly?.anion_gap_mmol_L).toBe(16);
+    for (const name of ['anion_gap_mmol_L', 'delta_ratio']) {
+      expect(exportColumns().find((c) => c.name === name)?.description, name).toContain('`hco3_serum_mmol_L`), else the gas HCO3 (`hco3_mmol_L`)');
+    }
+  });
+
   it('give a FiO2 written as a percentage the same number as one written as a fraction (70 % is 0.7, not 0.7000000000000001)', () => {
     const written = ['fio2 70 %', 'fio2 0.7', 'fio2 70', 'fio2 35 %', 'fio2 0.35'];
     const r = rowsOf(written.map((w, i) => `@ day 1 0${i}:00\noxygen venturi, ${w}\nabg po2 70`).join('\n'));

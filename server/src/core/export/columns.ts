@@ -214,7 +214,8 @@ const WHERE_FROM: Readonly<Record<string, string>> = {
   barometric: `Barometric pressure (PB) the calculations use: as stated on a place line, else estimated from the altitude (the barometricModel setting), else ${SEA_LEVEL_MMHG} mmHg (sea level).`,
   // The derivation takes the albumin-corrected gap where there is one: the formula's {AG} alone would
   // send a reader recomputing the column to `anion_gap_mmol_L`, and to another number.
-  delta_ratio: 'Delta ratio (Δ ratio), derived: ({AG} − 12) ÷ (24 − {HCO3}), where {AG} is the anion gap corrected for albumin (`anion_gap_albumin_corrected_mmol_L`) when albumin is known, else the anion gap (`anion_gap_mmol_L`).',
+  delta_ratio: 'Delta ratio (Δ ratio), derived: ({AG} − 12) ÷ (24 − {HCO3}), where {AG} is the anion gap corrected for albumin (`anion_gap_albumin_corrected_mmol_L`) when albumin is known, else the anion gap (`anion_gap_mmol_L`), and {HCO3} the serum bicarbonate (`hco3_serum_mmol_L`), else the gas HCO3 (`hco3_mmol_L`).',
+  anion_gap: 'Anion gap (AG), derived: {Na} − ({Cl} + {HCO3}), where {HCO3} is the serum bicarbonate (`hco3_serum_mmol_L`), else the gas HCO3 (`hco3_mmol_L`); without potassium.',
 };
 
 function derivedColumns(def: (typeof DERIVED)[number], fieldIds: ReadonlySet<string>): Column[] {
