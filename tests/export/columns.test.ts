@@ -143,6 +143,18 @@ describe('cells', () => {
     expect(plain?.delta_ratio).toBe((20 - 12) / (24 - 20));
   });
 
+  it('describe minute ventilation, mechanical power and CaO2 by the columns they use: the measured rate else the set rate, SaO2 else SpO2 (standard respiratory mechanics, common practice; Gattinoni L et al., Intensive Care Med 2016;42:1567–1575, from memory)', () => {
+    // VE 500 × 20 ÷ 1000 = 10 L/min with the measured rate 20 (set rate 14); MP 0.098 × 20 × 0.5 × (25 − 15 ÷ 2) = 17.15 J/min;
+    // CaO2 1.34 × 10 × 90 ÷ 100 + 0.003 × 60 = 12.24 mL/dL with SpO2 90 standing in for SaO2.
+    const [row] = rowsOf('@ day 1 08:00\nvent mode VC, vt 500, rate 14, peep 5, plateau 20, peak 25\nvitals rr 20, spo2 90\nabg po2 60, pco2 40\nlabs hb 10');
+    expect(row?.minute_ventilation_L_min).toBe(10);
+    expect(row?.mechanical_power_J_min).toBeCloseTo(17.15, 9);
+    expect(row?.cao2_mL_dL).toBeCloseTo(12.24, 9);
+    const descriptionOf = (name: string) => exportColumns().find((c) => c.name === name)?.description ?? '';
+    for (const name of ['minute_ventilation_L_min', 'mechanical_power_J_min']) expect(descriptionOf(name), name).toContain('the measured rate (`rr_per_min`), else the set rate (`vent_rate_per_min`)');
+    expect(descriptionOf('cao2_mL_dL')).toContain('the SaO2 (`sao2_pct`), else the SpO2 (`spo2_pct`)');
+  });
+
   it('describe the anion gap by the HCO3 column it uses: the serum bicarbonate, else the gas HCO3 (common practice, no source)', () => {
     // Serum 20 beside a gas HCO3 of 24: 140 − (100 + 20) = 20; the gas HCO3 alone: 140 − (100 + 24) = 16.
     const [both] = rowsOf('@ day 1 08:00\nabg 7.40/40/90/24\nlabs na 140, cl 100, hco3 20');
