@@ -426,6 +426,7 @@ export function toFhirBundle(path: string, result: NoteResult, options: FhirOpti
       return input?.stated.usable ? input.stated.word : null;
     };
     const place: Place = { key: String(tp.index), effective, note: timepointNote(tp, writtenLabel(result, tp), options), device: word('device'), mode: word('mode') };
+    const repeated = repeatedFields(tp);
     for (const field of FIELDS) {
       const input = tp.values.get(field.id);
       if (input && input.origin.kind === 'here') {
@@ -434,6 +435,7 @@ export function toFhirBundle(path: string, result: NoteResult, options: FhirOpti
       }
       // The same field stated here in another section too (a ventilator's FiO2 beside the gas's
       // sampling FiO2, sodium on a blood gas and on a labs line): each is an Observation of its own.
+      if (!repeated?.has(field.id)) continue;
       for (const other of alsoStated(tp, field.id, input?.stated)) {
         const resource = fieldObservation(field, other, place);
         if (resource) fullUrls.set(statedKey(field.id, other.stated), add(place, `${field.id}_${other.stated.section}`, resource));
@@ -457,6 +459,22 @@ export function toFhirBundle(path: string, result: NoteResult, options: FhirOpti
 /** A stated value's key among the Observations: its field, line and where its item starts (a shorthand gas's numbers share one item). */
 function statedKey(fieldId: string, at: StatedValue | { readonly line: number; readonly span: { readonly start: number } }): string {
   return `${fieldId}:${at.line}:${'item' in at ? at.item.span.start : at.span.start}`;
+}
+
+/** The fields stated more than once at a timepoint (in one section or in several), or null: most timepoints have none. */
+function repeatedFields(tp: Timepoint): Set<string> | null {
+  const stated = tp.stated;
+  let repeated: Set<string> | null = null;
+  for (let i = 1; i < stated.length; i++) {
+    const id = stated[i]!.fieldId;
+    for (let j = 0; j < i; j++) {
+      if (stated[j]!.fieldId === id) {
+        (repeated ??= new Set()).add(id);
+        break;
+      }
+    }
+  }
+  return repeated;
 }
 
 /**
