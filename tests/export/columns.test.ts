@@ -185,6 +185,8 @@ describe('cells', () => {
     expect(later?.hr_per_min).toBeNull(); // measurements do not carry
     expect(later?.carried_fields).toBe('fio2;mode;vt;vent_rate;peep');
     expect(rows[0]?.carried_fields).toBe('');
+    // An empty list, not an unknown value: the description says so, as JSON Lines readers see `""` there, not null.
+    expect(exportColumns().find((c) => c.name === 'carried_fields')?.description).toContain('`""` in JSON Lines, never null');
   });
 
   it('give time since day 1 00:00 and since the first known time; a day without a time of day leaves both empty', () => {

@@ -268,7 +268,7 @@ function summaryColumns(): Column[] {
   return [
     {
       name: 'carried_fields',
-      description: 'Ids of the fields whose value in this row was carried from an earlier timepoint, `;`-joined.',
+      description: 'Ids of the fields whose value in this row was carried from an earlier timepoint, `;`-joined; an empty text (`""` in JSON Lines, never null) when none was.',
       unit: null,
       ucum: null,
       type: 'string',
