@@ -155,6 +155,11 @@ describe('cells', () => {
     expect(descriptionOf('cao2_mL_dL')).toContain('the SaO2 (`sao2_pct`), else the SpO2 (`spo2_pct`)');
   });
 
+  it('hold the measurement written last when one is stated in two sections of a timepoint, and the sampling FiO2 over the ventilator\'s (README, "Export columns")', () => {
+    const [row] = rowsOf('@ day 1 08:00\nlabs na 141, hb 13\nabg na 139, hb 12\nvent etco2 40\nvitals etco2 30\nabg fio2 0.5\nvent mode VC, fio2 0.4');
+    expect([row?.na_mmol_L, row?.hb_g_dL, row?.etco2_mmHg, row?.fio2_fraction]).toEqual([139, 12, 30, 0.5]);
+  });
+
   it('describe the anion gap by the HCO3 column it uses: the serum bicarbonate, else the gas HCO3 (common practice, no source)', () => {
     // Serum 20 beside a gas HCO3 of 24: 140 − (100 + 20) = 20; the gas HCO3 alone: 140 − (100 + 24) = 16.
     const [both] = rowsOf('@ day 1 08:00\nabg 7.40/40/90/24\nlabs na 140, cl 100, hco3 20');
