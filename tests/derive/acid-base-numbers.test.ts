@@ -8,7 +8,7 @@
 // < 0.4, 0.4–0.8, 0.8–2, > 2 (Rastegar A, JASN 2007;18:2429–2431, from memory).
 import { describe, expect, it } from 'vitest';
 import { acidBaseLabel } from '../../server/src/core/service/hints';
-import { readings } from './helpers';
+import { derived, readings } from './helpers';
 
 const reading = (gas: string) => readings(`@ 08:00\noxygen room air\n${gas}`)['acid-base'];
 
@@ -23,6 +23,33 @@ describe('respiratory disorders name the HCO3 ranges they were told apart by', (
     const text = reading('abg 7.49/28/45/21');
     expect(text).toBe('Consistent with respiratory alkalosis (pH 7.49, PaCO2 28 mmHg, HCO3 21.0 mmol/L); HCO3 21.0 mmol/L is within both the acute (20–24 mmol/L) and the chronic (16.0–21.2 mmol/L) range, which overlap here, so acute cannot be told from chronic.');
     expect(acidBaseLabel(text)).toBe('resp. alkalosis');
+  });
+});
+
+describe('the expected HCO3 formula, with its numbers put in, gives the range (Narins & Emmett, Medicine 1980;59:161–187; Adrogué & Madias, JASN 2010;21:920–923, from memory)', () => {
+  /** The coefficients the formula text names for acidosis and alkalosis, each a number or a span `a…b`. */
+  function coefficients(formula: string): { acidosis: number[]; alkalosis: number[] } {
+    const m = /\(([^ ]+) acidosis \| ([^ ]+) alkalosis\)/.exec(formula);
+    if (!m) throw new Error(`no coefficients in ${formula}`);
+    const numbers = (text: string) => text.split('…').map((t) => Number(t.replace('−', '-')));
+    return { acidosis: numbers(m[1]!), alkalosis: numbers(m[2]!) };
+  }
+  const note = '@ 08:00\noxygen room air\nabg 7.47/27/80/19.5';
+
+  it.each(['hco3_expected_acute', 'hco3_expected_chronic'])('%s: PaCO2 27 mmHg (alkalosis), HCO3 falls: 24 + k × (27 − 40) ÷ 10 ± 2', (id) => {
+    const d = derived(note, id);
+    const ends = coefficients(d.formula).alkalosis.map((k) => 24 + (k * (27 - 40)) / 10);
+    expect(d.range?.low).toBeCloseTo(Math.min(...ends) - 2, 9);
+    expect(d.range?.high).toBeCloseTo(Math.max(...ends) + 2, 9);
+    // Acute 24 − 2 × 1.3 ± 2 = 19.4–23.4; chronic 24 − (4…5) × 1.3 ± 2 = 15.5–20.8 mmol/L.
+    expect([d.range?.low, d.range?.high].map((x) => Math.round(x! * 10) / 10)).toEqual(id.endsWith('acute') ? [19.4, 23.4] : [15.5, 20.8]);
+  });
+
+  it.each(['hco3_expected_acute', 'hco3_expected_chronic'])('%s: PaCO2 60 mmHg (acidosis), HCO3 rises: 24 + k × (60 − 40) ÷ 10 ± 2', (id) => {
+    const d = derived('@ 08:00\noxygen room air\nabg 7.25/60/70/26', id);
+    const ends = coefficients(d.formula).acidosis.map((k) => 24 + (k * (60 - 40)) / 10);
+    expect(d.range?.low).toBeCloseTo(Math.min(...ends) - 2, 9);
+    expect(d.range?.high).toBeCloseTo(Math.max(...ends) + 2, 9);
   });
 });
 

@@ -133,6 +133,52 @@ describe('cells', () => {
     expect(rowsOf('@ day 1 08:00\nabg po2 80\n@ +1h\nunits gas kPa\nabg po2 10').map((r) => r.gas_unit)).toEqual(['mmHg', 'kPa']);
   });
 
+  it('describe the delta ratio by the columns it is computed from: the albumin-corrected gap when there is one (Rastegar A, JASN 2007;18:2429–2431, from memory; Figge J et al., Crit Care Med 1998;26:1807–1810, from memory)', () => {
+    // AG 140 − (100 + 20) = 20; corrected 20 + 2.5 × (4.0 − 3.0) = 22.5; (22.5 − 12) ÷ (24 − 20) = 2.625.
+    const [row] = rowsOf('@ day 1 08:00\nlabs na 140, cl 100, hco3 20, albumin 3.0');
+    expect([row?.anion_gap_mmol_L, row?.anion_gap_albumin_corrected_mmol_L, row?.delta_ratio]).toEqual([20, 22.5, 2.625]);
+    const description = exportColumns().find((c) => c.name === 'delta_ratio')?.description ?? '';
+    expect(description).toContain('`anion_gap_albumin_corrected_mmol_L`');
+    const [plain] = rowsOf('@ day 1 08:00\nlabs na 140, cl 100, hco3 20');
+    expect(plain?.delta_ratio).toBe((20 - 12) / (24 - 20));
+  });
+
+  it('describe minute ventilation, mechanical power and CaO2 by the columns they use: the measured rate else the set rate, SaO2 else SpO2 (standard respiratory mechanics, common practice; Gattinoni L et al., Intensive Care Med 2016;42:1567–1575, from memory)', () => {
+    // VE 500 × 20 ÷ 1000 = 10 L/min with the measured rate 20 (set rate 14); MP 0.098 × 20 × 0.5 × (25 − 15 ÷ 2) = 17.15 J/min;
+    // CaO2 1.34 × 10 × 90 ÷ 100 + 0.003 × 60 = 12.24 mL/dL with SpO2 90 standing in for SaO2.
+    const [row] = rowsOf('@ day 1 08:00\nvent mode VC, vt 500, rate 14, peep 5, plateau 20, peak 25\nvitals rr 20, spo2 90\nabg po2 60, pco2 40\nlabs hb 10');
+    expect(row?.minute_ventilation_L_min).toBe(10);
+    expect(row?.mechanical_power_J_min).toBeCloseTo(17.15, 9);
+    expect(row?.cao2_mL_dL).toBeCloseTo(12.24, 9);
+    const descriptionOf = (name: string) => exportColumns().find((c) => c.name === name)?.description ?? '';
+    for (const name of ['minute_ventilation_L_min', 'mechanical_power_J_min']) expect(descriptionOf(name), name).toContain('the measured rate (`rr_per_min`), else the set rate (`vent_rate_per_min`)');
+    expect(descriptionOf('cao2_mL_dL')).toContain('the SaO2 (`sao2_pct`), else the SpO2 (`spo2_pct`)');
+  });
+
+  it('hold the measurement written last when one is stated in two sections of a timepoint, and the sampling FiO2 over the ventilator\'s (README, "Export columns")', () => {
+    const [row] = rowsOf('@ day 1 08:00\nlabs na 141, hb 13\nabg na 139, hb 12\nvent etco2 40\nvitals etco2 30\nabg fio2 0.5\nvent mode VC, fio2 0.4');
+    expect([row?.na_mmol_L, row?.hb_g_dL, row?.etco2_mmHg, row?.fio2_fraction]).toEqual([139, 12, 30, 0.5]);
+  });
+
+  it('describe the anion gap by the HCO3 column it uses: the serum bicarbonate, else the gas HCO3 (common practice, no source)', () => {
+    // Serum 20 beside a gas HCO3 of 24: 140 − (100 + 20) = 20; the gas HCO3 alone: 140 − (100 + 24) = 16.
+    const [both] = rowsOf('@ day 1 08:00\nabg 7.40/40/90/24\nlabs na 140, cl 100, hco3 20');
+    expect([both?.hco3_mmol_L, both?.hco3_serum_mmol_L, both?.anion_gap_mmol_L]).toEqual([24, 20, 20]);
+    const [gasOnly] = rowsOf('@ day 1 08:00\nabg 7.40/40/90/24\nlabs na 140, cl 100');
+    expect(gasOnly?.anion_gap_mmol_L).toBe(16);
+    for (const name of ['anion_gap_mmol_L', 'delta_ratio']) {
+      expect(exportColumns().find((c) => c.name === name)?.description, name).toContain('`hco3_serum_mmol_L`), else the gas HCO3 (`hco3_mmol_L`)');
+    }
+  });
+
+  it('give a FiO2 written as a percentage the same number as one written as a fraction (70 % is 0.7, not 0.7000000000000001)', () => {
+    const written = ['fio2 70 %', 'fio2 0.7', 'fio2 70', 'fio2 35 %', 'fio2 0.35'];
+    const r = rowsOf(written.map((w, i) => `@ day 1 0${i}:00\noxygen venturi, ${w}\nabg po2 70`).join('\n'));
+    expect(r.map((x) => x.fio2_fraction)).toEqual([0.7, 0.7, 0.7, 0.35, 0.35]);
+    expect(r.map((x) => x.pf_ratio)).toEqual([100, 100, 100, 200, 200]);
+    expect(rowsOf('@ day 1 08:00\nlabs albumin 34 g/L, hb 123 g/L').map((x) => [x.albumin_g_dL, x.hb_g_dL])).toEqual([[3.4, 12.3]]);
+  });
+
   it('leave out a value Pneumark does not use (SpO2 104 % is impossible)', () => {
     expect(rows[0]?.spo2_pct).toBeNull();
     expect(rows[0]?.findings_errors).toBeGreaterThan(0);
@@ -144,6 +190,8 @@ describe('cells', () => {
     expect(later?.hr_per_min).toBeNull(); // measurements do not carry
     expect(later?.carried_fields).toBe('fio2;mode;vt;vent_rate;peep');
     expect(rows[0]?.carried_fields).toBe('');
+    // An empty list, not an unknown value: the description says so, as JSON Lines readers see `""` there, not null.
+    expect(exportColumns().find((c) => c.name === 'carried_fields')?.description).toContain('`""` in JSON Lines, never null');
   });
 
   it('give time since day 1 00:00 and since the first known time; a day without a time of day leaves both empty', () => {
@@ -175,6 +223,20 @@ describe('cells', () => {
     const s = samples().find((x) => x.name === 'icu-ventilated-lung-injury')!;
     const r = timepointRows(s.path, s.result, plain);
     expect(r.map((x) => [x.findings_errors, x.findings_warnings, x.findings_information])).toEqual([[0, 1, 3], [0, 0, 3], [0, 0, 3], [0, 0, 2]]);
+  });
+
+  it('leave out findings of header lines among the lines of an implicit first timepoint, as of any header line', () => {
+    // Lines 1, 4 and 5 are the header (patient and units lines before the first `@`), also after
+    // the vitals line that opened the implicit first timepoint; lines 2 and 3 belong to it.
+    const note = 'patient age 50, qq 3\nvitalz hr 80\nvitals hr 80 zz 4\npatient age 500\nunits gas kPa\n@ day 1 08:00 a\nvitals hr 70';
+    const result = checked(note);
+    expect(result.findings.map((f) => [f.code, f.range.start.line + 1])).toEqual([['PN201', 1], ['PN101', 2], ['PN201', 3], ['PN206', 4], ['PN204', 4]]);
+    const r = timepointRows('a.pneu', result, plain);
+    expect(r.map((x) => [x.findings_errors, x.findings_warnings])).toEqual([[2, 0], [0, 0]]);
+    expect(findingsByTimepoint(result).map((list) => list.map((f) => f.range.start.line + 1))).toEqual([[2, 3], []]);
+    // With an `@` first, the header's findings belong to no row either.
+    const explicit = checked('patient age 50, qq 3\n@ day 1 08:00\nvitals hr 80 zz 4');
+    expect(timepointRows('b.pneu', explicit, plain).map((x) => x.findings_errors)).toEqual([1]);
   });
 });
 

@@ -129,6 +129,43 @@ describe('observations', () => {
     expect(ids).toContain('obs-5-spo2');
   });
 
+  it('a field stated in two sections at one timepoint gives an Observation for each, and a carried FiO2 is referenced where it was stated', () => {
+    const note = [
+      '@ day 1 08:00',
+      'vent      mode VC, vt 400, peep 5, fio2 0.4',
+      'abg       7.35/45/80/24, fio2 0.5, na 139',
+      'labs      na 141',
+      'vitals    etco2 30',
+      'vent      etco2 40',
+      '@ 09:00',
+      'abg       po2 90',
+    ].join('\n');
+    const b = toFhirBundle('two-sections.pneu', checked(note), noAnchor);
+    const value = (id: string) => byId(b, id)?.valueQuantity?.value;
+    // In force (and in the CSV column): the gas's sampling FiO2, the labs sodium, the vent line's EtCO2.
+    expect([value('obs-0-fio2'), value('obs-0-na'), value('obs-0-etco2')]).toEqual([0.5, 141, 40]);
+    // Stated too, and not lost: the ventilator's FiO2 setting, the blood gas sodium, the vitals EtCO2.
+    expect(byId(b, 'obs-0-fio2-vent')?.code.coding?.[0]?.code).toBe('19994-3');
+    expect(value('obs-0-fio2-vent')).toBe(0.4);
+    expect(byId(b, 'obs-0-na-abg')?.code.coding?.[0]?.code).toBe('2947-0');
+    expect(value('obs-0-na-abg')).toBe(139);
+    expect(value('obs-0-etco2-vitals')).toBe(30);
+    // Timepoint 1's P/F uses the ventilator's FiO2 carried from timepoint 0 (90 / 0.4), not the gas's 0.5.
+    const urlOf = (id: string) => b.entry?.find((e) => e.resource.id === id)?.fullUrl;
+    const pf = byId(b, 'obs-1-pf-ratio')!;
+    expect(pf.valueQuantity?.value).toBeCloseTo(90 / 0.4, 9);
+    expect(pf.derivedFrom).toEqual([{ reference: urlOf('obs-1-pao2') }, { reference: urlOf('obs-0-fio2-vent') }]);
+    expect(validator.validate(b, true)).toEqual([]);
+    expect(new Set(b.entry?.map((e) => e.fullUrl)).size).toBe(b.entry?.length);
+  });
+
+  it('a setting that is not used (an oxygen line ended by a vent line at the same timepoint) or replaced in its section is not exported', () => {
+    const note = '@ day 1 08:00\noxygen mask, fio2 0.3\nvent mode VC, vt 400, fio2 0.5\nabg po2 80, fio2 0.45\n@ 09:00\nvent mode VC, vt 400\nvent mode PC, vt 380';
+    const b = toFhirBundle('not-used.pneu', checked(note), noAnchor);
+    const values = observations(b).filter((o) => /^obs-\d+-(fio2|vt)/.test(o.id)).map((o) => [o.id, o.valueQuantity?.value]);
+    expect(values).toEqual([['obs-0-fio2', 0.45], ['obs-0-fio2-vent', 0.5], ['obs-0-vt', 400], ['obs-1-vt', 380]]);
+  });
+
   it('every UCUM code is one a UCUM library reads, [pH] included, and names the unit the value is in', () => {
     const ucum = UcumLhcUtils.getInstance();
     const codes = new Set(samples().flatMap((s) => observations(toFhirBundle(s.path, s.result, noAnchor)).flatMap((o) => [o.valueQuantity?.code, ...(o.component ?? []).map((c) => c.valueQuantity.code)])));
@@ -397,6 +434,15 @@ describe('time', () => {
       expect(anchorProblem(bad), bad).not.toBeNull();
       expect(() => toFhirBundle('a.pneu', result, { anchor: bad, redactProse: false, shiftDays: 0 }), bad).toThrow(RangeError);
     }
+  });
+
+  it('an anchor offset is at most 14:00 either way, as a FHIR dateTime allows (its pattern: 00:00 to 13:59, or 14:00)', () => {
+    for (const good of ['2024-03-01T00:00+14:00', '2024-03-01T00:00-14:00', '2024-03-01T00:00+13:59', '2024-03-01T00:00-00:00']) {
+      expect(anchorProblem(good), good).toBeNull();
+      const bundle = toFhirBundle('a.pneu', result, { anchor: good, redactProse: false, shiftDays: 0 });
+      expect(validator.validate(bundle, true), good).toEqual([]);
+    }
+    for (const bad of ['2024-03-01T00:00+14:30', '2024-03-01T00:00-14:59', '2024-03-01T00:00+12:60']) expect(anchorProblem(bad), bad).not.toBeNull();
   });
 
   it('an anchor that is not 00:00 is refused rather than moving every clock time of the note by its time', () => {

@@ -151,6 +151,15 @@ describe('percent and fraction', () => {
     expectRelativelyClose(fractionFromPercent(40), ucumConvert('%', 40, '1'), 1e-12);
     expectRelativelyClose(percentFromFraction(0.97), ucumConvert('1', 0.97, '%'), 1e-12);
   });
+  it('the unit registry reads a whole percentage, g/L and months as the number written in the base unit, to the last digit (% = 1/100, g/L = 1/10 g/dL, month = 1/12 year: definitions of the units)', () => {
+    const read = (value: number, from: string, to: string) => convert(value, unitById(from)!, unitById(to)!);
+    // 57 × 0.01 is 0.5700000000000001 in doubles, 70 × 0.01 is 0.7000000000000001: the exports
+    // would give `fio2 57 %` and `fio2 0.57` two different numbers.
+    for (let percent = 0; percent <= 100; percent++) expect(read(percent, '%', 'fraction'), `${percent} %`).toBe(Number(`${percent / 100}`));
+    expect([read(57, '%', 'fraction'), read(70, '%', 'fraction'), read(28.5, '%', 'fraction')]).toEqual([0.57, 0.7, 0.285]);
+    expect([read(34, 'g/L', 'g/dL'), read(123, 'g/L', 'g/dL')]).toEqual([3.4, 12.3]);
+    expect([read(5, 'mo', 'y'), read(18, 'mo', 'y')]).toEqual([5 / 12, 1.5]);
+  });
   it('reject values outside 0–100 % and 0–1', () => {
     expect(fractionFromPercent(120)).toBeNull();
     expect(fractionFromPercent(-1)).toBeNull();

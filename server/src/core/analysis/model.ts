@@ -60,6 +60,12 @@ export interface ValuesInForce extends ReadonlyMap<string, InputValue> {
   originOf(id: string): Origin['kind'] | null;
   /** The usable number in force for a field (canonical unit), without building the value; null when none. */
   numberOf(id: string): number | null;
+  /**
+   * The setting (patient, place, oxygen or ventilator value) held for a field at the end of the
+   * timepoint, the one later timepoints carry, also where a measurement stated here is the value in
+   * force instead (a sampling FiO2 on a gas line beside a ventilator's FiO2); undefined when none.
+   */
+  heldSetting(id: string): InputValue | undefined;
 }
 
 export interface TimepointTime {

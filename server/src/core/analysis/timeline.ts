@@ -729,6 +729,11 @@ class ValuesAt implements ValuesInForce {
     return this.measuredHere(id) !== undefined || this.heldFor(id) !== undefined;
   }
 
+  heldSetting(id: string): InputValue | undefined {
+    const held = this.heldFor(id);
+    return held ? { stated: held.stated, origin: originOf(held, this.index) } : undefined;
+  }
+
   numberOf(id: string): number | null {
     const s = this.measuredHere(id) ?? this.heldFor(id)?.stated;
     return s !== undefined && s.usable ? s.value : null;

@@ -203,7 +203,9 @@ function respiratoryExpected(chronicity: 'acute' | 'chronic') {
     unit: 'mmol/L',
     decimals: 0,
     category: 'acid-base',
-    formula: chronicity === 'acute' ? '24 + (+1 acidosis | −2 alkalosis) × ({PaCO2} − 40) ÷ 10 ± 2' : '24 + (+3.5…+5 acidosis | −4…−5 alkalosis) × ({PaCO2} − 40) ÷ 10 ± 2',
+    // HCO3 moves with PaCO2 (up above 40 mmHg, down below it), so each coefficient is positive: a
+    // `−2` for alkalosis would turn 24 + (−2) × (27 − 40) ÷ 10 into 26.6, where HCO3 falls to 21.4.
+    formula: chronicity === 'acute' ? '24 + (1 acidosis | 2 alkalosis) × ({PaCO2} − 40) ÷ 10 ± 2' : '24 + (3.5…5 acidosis | 4…5 alkalosis) × ({PaCO2} − 40) ÷ 10 ± 2',
     source: `${SOURCES['narins-emmett-1980']} ${SOURCES['adrogue-madias-2010']}`,
     anchors: ['ph', 'paco2'],
     compute(c) {

@@ -28,7 +28,8 @@
  * - carried_fields lists, `;`-joined in registry order, the fields whose cell in this row holds
  *   a value carried from an earlier timepoint (header values are not "carried").
  * - The findings counts cover the findings that start on this timepoint's lines (from its `@`
- *   line to the line before the next timepoint); findings on header lines belong to no row.
+ *   line to the line before the next timepoint); findings on header lines belong to no row, also
+ *   those of a patient, place or units line among the lines of an implicit first timepoint.
  *
  * - label is the text written after the timepoint's time, empty when there is none.
  *
@@ -43,6 +44,7 @@ import type { DerivedValue } from '../derive/model';
 import { SEA_LEVEL_MMHG } from '../derive/atmosphere';
 import { DERIVED } from '../derive/registry';
 import { FIELDS, type FieldDef } from '../fields/registry';
+import { sectionById } from '../fields/sections';
 import type { Finding } from '../types';
 import { ucumCode, unitForPeople, unitSlug } from './units';
 
@@ -206,10 +208,17 @@ function fieldColumns(field: FieldDef, index: number): Column[] {
 
 /**
  * Descriptions of derived values whose formula is the value itself (`{PB}`), which would say
- * nothing: where the value comes from instead.
+ * nothing, or does not say which column an input is: where the value comes from instead.
  */
 const WHERE_FROM: Readonly<Record<string, string>> = {
   barometric: `Barometric pressure (PB) the calculations use: as stated on a place line, else estimated from the altitude (the barometricModel setting), else ${SEA_LEVEL_MMHG} mmHg (sea level).`,
+  // The derivation takes the albumin-corrected gap where there is one: the formula's {AG} alone would
+  // send a reader recomputing the column to `anion_gap_mmol_L`, and to another number.
+  delta_ratio: 'Delta ratio (Δ ratio), derived: ({AG} − 12) ÷ (24 − {HCO3}), where {AG} is the anion gap corrected for albumin (`anion_gap_albumin_corrected_mmol_L`) when albumin is known, else the anion gap (`anion_gap_mmol_L`), and {HCO3} the serum bicarbonate (`hco3_serum_mmol_L`), else the gas HCO3 (`hco3_mmol_L`).',
+  minute_ventilation: 'Minute ventilation (VE), derived: {VT} × {RR} ÷ 1000, where {RR} is the measured rate (`rr_per_min`), else the set rate (`vent_rate_per_min`).',
+  mechanical_power: 'Mechanical power (simplified) (MP), derived: 0.098 × {RR} × {VT} ÷ 1000 × ({Ppeak} − ({Pplat} − {PEEP}) ÷ 2), where {RR} is the measured rate (`rr_per_min`), else the set rate (`vent_rate_per_min`).',
+  cao2: 'Arterial oxygen content (CaO2), derived: {Hüfner} × {Hb} × {SaO2} ÷ 100 + 0.003 × {PaO2}, where {SaO2} is the SaO2 (`sao2_pct`), else the SpO2 (`spo2_pct`), and {Hüfner} the hufnerConstant setting (1.34 mL/g by default).',
+  anion_gap: 'Anion gap (AG), derived: {Na} − ({Cl} + {HCO3}), where {HCO3} is the serum bicarbonate (`hco3_serum_mmol_L`), else the gas HCO3 (`hco3_mmol_L`); without potassium.',
 };
 
 function derivedColumns(def: (typeof DERIVED)[number], fieldIds: ReadonlySet<string>): Column[] {
@@ -259,7 +268,7 @@ function summaryColumns(): Column[] {
   return [
     {
       name: 'carried_fields',
-      description: 'Ids of the fields whose value in this row was carried from an earlier timepoint, `;`-joined.',
+      description: 'Ids of the fields whose value in this row was carried from an earlier timepoint, `;`-joined; an empty text (`""` in JSON Lines, never null) when none was.',
       unit: null,
       ucum: null,
       type: 'string',
@@ -323,9 +332,20 @@ export function assertExportOptions(options: ExportOptions): void {
   if (!Number.isSafeInteger(options.shiftDays)) throw new RangeError(`shiftDays must be a whole number of days, not ${options.shiftDays}`);
 }
 
-/** Findings that start on a timepoint's lines, in the order of the result. */
+/**
+ * Whether a line of a timepoint is a header line: a patient, place or units line before the first
+ * `@`, which the implicit first timepoint's lines (from the first line with content) may include.
+ */
+function isHeaderLine(result: NoteResult, timepoint: Timepoint, line: number): boolean {
+  if (timepoint.line !== null) return false;
+  const lines = result.analysis.tree.lines;
+  const node = lines[line]?.line === line ? lines[line] : lines.find((l) => l.line === line);
+  return node?.kind === 'section' && sectionById(node.section).kind === 'header';
+}
+
+/** Findings that start on a timepoint's lines (header lines left out), in the order of the result. */
 export function findingsOfTimepoint(result: NoteResult, timepoint: Timepoint): Finding[] {
-  return result.findings.filter((f) => f.range.start.line >= timepoint.startLine && f.range.start.line <= timepoint.endLine);
+  return result.findings.filter((f) => f.range.start.line >= timepoint.startLine && f.range.start.line <= timepoint.endLine && !isHeaderLine(result, timepoint, f.range.start.line));
 }
 
 /**
@@ -351,7 +371,7 @@ export function findingsByTimepoint(result: NoteResult): Finding[][] {
         break;
       }
     }
-    if (found >= 0) out[found]?.push(f);
+    if (found >= 0 && !isHeaderLine(result, timepoints[found]!, line)) out[found]?.push(f);
   }
   return out;
 }

@@ -4,7 +4,10 @@
  *
  * What becomes an Observation:
  * - each usable number (or pair) stated at a timepoint (`here`; carried values are not repeated:
- *   the Observation of the timepoint that stated them stands), from the sections patient, vitals,
+ *   the Observation of the timepoint that stated them stands), a field stated in two sections there
+ *   once per section (a ventilator's FiO2 beside a gas's sampling FiO2, sodium on a blood gas line
+ *   and on a labs line; a value replaced in its own section, PN206, or a setting not used, PN311,
+ *   is left out), from the sections patient, vitals,
  *   oxygen, vent, abg, vbg and labs. Words (sex, oxygen device, ventilator mode, gas unit) and the
  *   place (altitude, barometric pressure: the surroundings, not the patient) are not exported;
  *   CSV and JSON Lines have them;
@@ -74,11 +77,12 @@
  * belongs to. With redactProse that note leaves out the timepoint's label.
  *
  * Ids: a resource's `id` is `obs-<timepoint>-<field>` (`obs-header-<field>` for header values;
- * `_` becomes `-`, which FHIR ids do not allow); its `fullUrl` is `urn:uuid:` with a UUID-shaped
+ * `_` becomes `-`, which FHIR ids do not allow) for the value in force, and
+ * `obs-<timepoint>-<field>-<section>` for the same field stated in another section there; its `fullUrl` is `urn:uuid:` with a UUID-shaped
  * id derived from the file, the timepoint and the field (stable-id.ts), the same on every run.
  */
 import type { NoteResult } from '../check-note';
-import type { InputValue, Timepoint } from '../analysis/model';
+import type { InputValue, StatedValue, Timepoint } from '../analysis/model';
 import type { DerivedValue } from '../derive/model';
 import { derivedValueOf } from '../derive/registry';
 import { FIELDS, loincFor, type FieldDef, type LoincCode } from '../fields/registry';
@@ -276,7 +280,10 @@ function parseAnchor(anchor: string): Anchor | string {
   const zone = m[8] ?? 'Z';
   const wallMs = Date.UTC(year, month - 1, day, hour, minute, second, ms);
   const back = new Date(wallMs);
-  const zoneOk = zone === 'Z' || (Number(zone.slice(1, 3)) <= 14 && Number(zone.slice(4, 6)) < 60);
+  // Offsets run from -14:00 to +14:00, as FHIR's dateTime pattern has them (+14:30 is no zone, and not FHIR).
+  const zoneHours = Number(zone.slice(1, 3));
+  const zoneMinutes = Number(zone.slice(4, 6));
+  const zoneOk = zone === 'Z' || (zoneMinutes < 60 && (zoneHours < 14 || (zoneHours === 14 && zoneMinutes === 0)));
   if (year < 1 || back.getUTCFullYear() !== year || back.getUTCMonth() !== month - 1 || back.getUTCDate() !== day || hour > 23 || minute > 59 || second > 59 || !zoneOk) {
     return `the anchor \`${anchor}\` is not a valid date and time`;
   }
@@ -385,7 +392,7 @@ export function toFhirBundle(path: string, result: NoteResult, options: FhirOpti
   if (typeof anchor === 'string') throw new RangeError(anchor);
 
   const entries: FhirBundleEntry[] = [];
-  /** fullUrl of each field Observation by `<timepoint>:<fieldId>`, for derivedFrom. */
+  /** fullUrl of each field Observation by the stated value it comes from (`statedKey`), for derivedFrom. */
   const fullUrls = new Map<string, string>();
   const add = (place: Place, what: string, resource: Omit<FhirObservation, 'id'>): string => {
     const fullUrl = `urn:uuid:${stableUuid(`${path}\u0000${place.key}\u0000${what}`)}`;
@@ -419,15 +426,24 @@ export function toFhirBundle(path: string, result: NoteResult, options: FhirOpti
       return input?.stated.usable ? input.stated.word : null;
     };
     const place: Place = { key: String(tp.index), effective, note: timepointNote(tp, writtenLabel(result, tp), options), device: word('device'), mode: word('mode') };
+    const repeated = repeatedFields(tp);
     for (const field of FIELDS) {
       const input = tp.values.get(field.id);
-      if (!input || input.origin.kind !== 'here') continue;
-      const resource = fieldObservation(field, input, place);
-      if (resource) fullUrls.set(`${tp.index}:${field.id}`, add(place, field.id, resource));
+      if (input && input.origin.kind === 'here') {
+        const resource = fieldObservation(field, input, place);
+        if (resource) fullUrls.set(statedKey(field.id, input.stated), add(place, field.id, resource));
+      }
+      // The same field stated here in another section too (a ventilator's FiO2 beside the gas's
+      // sampling FiO2, sodium on a blood gas and on a labs line): each is an Observation of its own.
+      if (!repeated?.has(field.id)) continue;
+      for (const other of alsoStated(tp, field.id, input?.stated)) {
+        const resource = fieldObservation(field, other, place);
+        if (resource) fullUrls.set(statedKey(field.id, other.stated), add(place, `${field.id}_${other.stated.section}`, resource));
+      }
     }
     const pf = derivedValueOf(result.analysis.derivation(tp.index), 'pf_ratio');
     if (pf) {
-      const resource = pfObservation(pf, tp, place, fullUrls);
+      const resource = pfObservation(pf, place, fullUrls);
       if (resource) add(place, pf.id, resource);
     }
   }
@@ -440,15 +456,64 @@ export function toFhirBundle(path: string, result: NoteResult, options: FhirOpti
   };
 }
 
-function pfObservation(pf: DerivedValue, tp: Timepoint, place: Place, fullUrls: ReadonlyMap<string, string>): Omit<FhirObservation, 'id'> | null {
+/** A stated value's key among the Observations: its field, line and where its item starts (a shorthand gas's numbers share one item). */
+function statedKey(fieldId: string, at: StatedValue | { readonly line: number; readonly span: { readonly start: number } }): string {
+  return `${fieldId}:${at.line}:${'item' in at ? at.item.span.start : at.span.start}`;
+}
+
+/** The fields stated more than once at a timepoint (in one section or in several), or null: most timepoints have none. */
+function repeatedFields(tp: Timepoint): Set<string> | null {
+  const stated = tp.stated;
+  let repeated: Set<string> | null = null;
+  for (let i = 1; i < stated.length; i++) {
+    const id = stated[i]!.fieldId;
+    for (let j = 0; j < i; j++) {
+      if (stated[j]!.fieldId === id) {
+        (repeated ??= new Set()).add(id);
+        break;
+      }
+    }
+  }
+  return repeated;
+}
+
+/**
+ * Values of a field stated at a timepoint besides the one in force there (`inForce`), each in a
+ * section of its own: the last of the field in each section (an earlier one in the same section is
+ * replaced, PN206), when it is a measurement or the setting the timepoint holds and carries. A
+ * setting that is not held (on an oxygen line ended by a vent line at the same timepoint, PN311)
+ * is not used, and not exported.
+ */
+function alsoStated(tp: Timepoint, fieldId: string, inForce: StatedValue | undefined): InputValue[] {
+  const out: InputValue[] = [];
+  const stated = tp.stated;
+  let held: StatedValue | null | undefined;
+  for (let i = 0; i < stated.length; i++) {
+    const s = stated[i]!;
+    if (s.fieldId !== fieldId || s === inForce) continue;
+    let replaced = false;
+    for (let j = i + 1; j < stated.length && !replaced; j++) replaced = stated[j]!.fieldId === fieldId && stated[j]!.section === s.section;
+    if (replaced) continue;
+    if (!s.hereOnly) {
+      if (held === undefined) {
+        const setting = tp.values.heldSetting(fieldId);
+        held = setting && setting.origin.kind === 'here' ? setting.stated : null;
+      }
+      if (s !== held) continue;
+    }
+    out.push({ stated: s, origin: { kind: 'here', line: s.line, span: s.item.span } });
+  }
+  return out;
+}
+
+function pfObservation(pf: DerivedValue, place: Place, fullUrls: ReadonlyMap<string, string>): Omit<FhirObservation, 'id'> | null {
   const q = quantity(pf.value, 'mmHg');
   if (!q) return null;
   const references: { reference: string }[] = [];
   for (const term of pf.inputs) {
     if (!term.fieldId) continue;
     const origin = term.origin;
-    const at = origin.kind === 'here' ? tp.index : origin.kind === 'carried' ? origin.timepoint : null;
-    const url = at === null ? undefined : fullUrls.get(`${at}:${term.fieldId}`);
+    const url = origin.kind === 'here' || origin.kind === 'carried' ? fullUrls.get(statedKey(term.fieldId, origin)) : undefined;
     if (url && !references.some((r) => r.reference === url)) references.push({ reference: url });
   }
   return {

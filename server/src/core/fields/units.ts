@@ -45,6 +45,17 @@ const linear = (factor: number) => ({
   fromBase: (v: number) => v / factor,
 });
 
+/**
+ * A unit that is a whole part of its base unit (1 % is 1/100 of the fraction 1): divided rather
+ * than multiplied by the part, so that a value is the number written, read in the base unit, to
+ * the last digit (57 % is 0.57, where 57 × 0.01 is 0.5700000000000001, and `fio2 57 %` and
+ * `fio2 0.57` give one number in the exports).
+ */
+const part = (divisor: number) => ({
+  toBase: (v: number) => v / divisor,
+  fromBase: (v: number) => v * divisor,
+});
+
 function unit(
   id: string,
   dimension: Dimension,
@@ -62,7 +73,7 @@ export const UNITS: readonly UnitDef[] = [
   unit('cmH2O', 'airway-pressure', 'cm[H2O]', linear(1), ['cmh2o', 'cm H2O', 'cmwater']),
   unit('mbar', 'airway-pressure', 'mbar', linear(CMH2O_PER_MBAR), ['hPa']),
   unit('fraction', 'fraction', '1', linear(1), []),
-  unit('%', 'fraction', '%', linear(0.01), ['percent', 'pct']),
+  unit('%', 'fraction', '%', part(100), ['percent', 'pct']),
   // Spelt as the fraction's percentage is (`spo2 94 pct` as `fio2 40 pct`).
   unit('%sat', 'percent', '%', linear(1), ['%', 'percent', 'pct']),
   unit('/min', 'rate', '/min', linear(1), ['bpm', 'min-1', 'breaths/min', 'beats/min', '/m']),
@@ -73,7 +84,7 @@ export const UNITS: readonly UnitDef[] = [
   unit('L/min', 'flow', 'L/min', linear(1), ['l/min', 'lpm', 'l/m', 'litres/min', 'liters/min']),
   unit('L/s', 'flow', 'L/s', linear(60), ['l/s', 'l/sec']),
   unit('g/dL', 'mass-concentration', 'g/dL', linear(1), ['g/dl']),
-  unit('g/L', 'mass-concentration', 'g/L', linear(0.1), ['g/l']),
+  unit('g/L', 'mass-concentration', 'g/L', part(10), ['g/l']),
   unit('mmol/L', 'substance-concentration', 'mmol/L', linear(1), ['mmol/l']),
   unit('mEq/L', 'substance-concentration', 'meq/L', linear(1), ['meq/l']),
   unit('cm', 'length', 'cm', linear(1), []),
@@ -83,7 +94,7 @@ export const UNITS: readonly UnitDef[] = [
   unit('kg', 'mass', 'kg', linear(1), ['kgs']),
   unit('lb', 'mass', '[lb_av]', linear(0.45359237), ['lbs']),
   unit('y', 'age', 'a', linear(1), ['yr', 'yrs', 'years', 'year', 'a']),
-  unit('mo', 'age', 'mo', linear(1 / 12), ['months', 'month']),
+  unit('mo', 'age', 'mo', part(12), ['months', 'month']),
   unit('ph', 'ph', '[pH]', linear(1), []),
 ];
 
