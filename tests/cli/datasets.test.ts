@@ -267,5 +267,7 @@ describe('parallel runs', () => {
       expect(byOption.stdout).toBe(single.stdout);
       expect(runWith('2', [command!, '--jobs', '0', ...rest]).stdout).toBe(single.stdout);
     }
-  });
+    // Twelve runs of the built command, each starting Node and, in four of them, worker threads:
+    // some 17 s on this 2-core machine when it is otherwise idle.
+  }, 90_000);
 });
