@@ -224,6 +224,25 @@ describe('right before a word', () => {
     const kpa = complete('abg po2 71 |pco2 40').find((c) => c.label === 'kPa');
     expect(kpa).toMatchObject({ insertText: 'kPa ', replace: { start: { line: 0, character: 11 }, end: { line: 0, character: 11 } } });
   });
+
+  it('offers nothing else before a number or a unit: it would take the number or part the unit from it', () => {
+    // A key in front of a device's flow would take the flow for its value (`oxygen cannula fio2 2 L/min`).
+    expect(complete('oxygen    cannula |2 L/min')).toEqual([]);
+    expect(complete('abg |7.31/56/71/26')).toEqual([]);
+    // Before a unit, only units (in its place), never a key in front of it (`peep 8 rate cmH2O`).
+    expect(labels('vent peep 8 |cm')).toEqual(['cmH2O', 'mbar']);
+    expect(labels('oxygen cannula 2 |L/min')).toEqual(['L/min']);
+    expect(labels('vitals hr 80 |/min, rr 18')).toEqual(['/min']);
+  });
+
+  it('offers nothing in front of a timepoint, or in front of its time or in place of part of it', () => {
+    for (const marked of ['|@ day 1 08:00  arrival', '|@', '@ |day 1 08:00', '@ d|ay 1 08:00', '@ day 1 |08:00', '@ |08:00  arrival', '@ |+2h']) {
+      expect(complete(marked), marked).toEqual([]);
+    }
+    // With nothing after the cursor but a comment, times are offered as before.
+    expect(labels('@ | # later')).toEqual(['day N HH:MM', 'HH:MM', '+interval']);
+    expect(labels('@ d|')).toEqual(['day N HH:MM']);
+  });
 });
 
 describe('while a value of several parts is typed', () => {

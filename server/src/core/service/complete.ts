@@ -10,7 +10,9 @@
  *   the keys that may follow (a unit may be left out); on an oxygen line, the keys of its device
  *   (no flow on room air; IPAP and EPAP for NIV, a level for CPAP).
  * Completions are narrowed to those whose label starts with the text typed before the cursor, and
- * replace the whole word under the cursor (the part after it too: `sp|2` becomes `spo2`).
+ * replace the whole word under the cursor (the part after it too: `sp|2` becomes `spo2`). Nothing
+ * is offered where it would break what follows the cursor: in front of a number, a unit, a
+ * timepoint's `@` or its time.
  */
 import type { NoteResult } from '../check-note';
 import { displayUnit } from '../analysis/read-value';
@@ -59,6 +61,9 @@ function completionsOnLine(node: LineNode, position: Position): CompletionInfo[]
     return narrow(lineStartCompletions(restOfLine === '', lineRange(line, wordStart, wordEnd)), typed);
   }
   if (first.text.startsWith('@')) {
+    // A time written after the cursor (`@ |day 1 08:00`, `@ day 1 |08:00`) stays as it is: a
+    // snippet put in front of it, or in place of its first word, would leave two times on the line.
+    if (text.slice(typed === '' ? ch : wordEnd, hash >= 0 ? hash : text.length).trim() !== '') return [];
     if (chunks.length === 1 && first.text === '@') return narrow(timeCompletions(lineRange(line, wordStart, wordEnd)), typed);
     // `@ day 2 |`: the clock time comes next (a day alone leaves the time unknown).
     if (isDayWithoutTime(chunks)) return narrow([CLOCK_AFTER_DAY(lineRange(line, wordStart, wordEnd))], typed);
@@ -140,12 +145,13 @@ function isFraction(field: FieldDef, value: number): boolean {
   return field.bare === 'fraction-or-percent' && value <= 1;
 }
 
-type Role = 'section' | 'key' | 'unit' | 'word' | 'number';
+type Role = 'section' | 'key' | 'unit' | 'word' | 'number' | 'timepoint';
 
 const ROLE_OF_KIND: Readonly<Record<CompletionInfo['kind'], Role | null>> = { section: 'section', key: 'key', unit: 'unit', word: 'word', snippet: null };
 
 /** What the word starting at `ch` is on its line: a section word, a key, a unit, a word value or a number. */
 function roleAt(node: LineNode, ch: number): Role | null {
+  if (node.kind === 'timepoint') return node.marker.span.start === ch ? 'timepoint' : null;
   if (node.kind !== 'section') return null;
   if (node.sectionToken.span.start === ch) return 'section';
   const hit = itemAt(node, ch);
@@ -158,17 +164,22 @@ function roleAt(node: LineNode, ch: number): Role | null {
  * With nothing typed before the cursor and a word right after it (`hr 80 |rr 18`), a completion
  * replaces that word only when it is the same kind of thing (a key for a key, a unit for a unit,
  * a mode for a mode); anything else is inserted before the word with a blank after it, so that
- * the word stays (`hr 80 /min rr 18`, never `hr 80 /min 18`).
+ * the word stays (`hr 80 /min rr 18`, never `hr 80 /min 18`). Before a number, a unit or the `@`
+ * of a timepoint nothing else is offered: whatever went in front would take the number for its
+ * own (`oxygen cannula fio2 2`), part a unit from its number (`peep 8 rate cmH2O`) or turn the
+ * timepoint into another line.
  */
 function keepNextWord(node: LineNode, ch: number, items: CompletionInfo[]): CompletionInfo[] {
   let role: Role | null | undefined;
-  return items.map((c) => {
+  const out: CompletionInfo[] = [];
+  for (const c of items) {
     const r = c.replace;
-    if (!r || r.start.character !== ch || r.end.character <= ch) return c;
+    if (!r || r.start.character !== ch || r.end.character <= ch) { out.push(c); continue; }
     role ??= roleAt(node, ch);
-    if (role !== null && ROLE_OF_KIND[c.kind] === role) return c;
-    return { ...c, insertText: `${c.insertText} `, replace: lineRange(r.start.line, ch, ch) };
-  });
+    if (role !== null && ROLE_OF_KIND[c.kind] === role) out.push(c);
+    else if (role !== 'number' && role !== 'unit' && role !== 'timepoint') out.push({ ...c, insertText: `${c.insertText} `, replace: lineRange(r.start.line, ch, ch) });
+  }
+  return out;
 }
 
 /**
