@@ -137,7 +137,8 @@ describe('units', () => {
     expect(units('vitals temp 38.2 |')).toEqual(['C', 'F']);
     expect(units('vent fio2 40 |')).toEqual(['%']);
     expect(units('labs hb 11 |')).toEqual(['g/dL', 'g/L']);
-    expect(complete('abg po2 71 |')[0]).toMatchObject({ kind: 'unit', detail: 'PaO2 (default unit)' });
+    expect(complete('abg po2 71 |')[0]).toMatchObject({ kind: 'unit', detail: "PaO2 (the note's gas unit)" });
+    expect(complete('vitals temp 38.2 |')[0]).toMatchObject({ kind: 'unit', detail: 'Temperature (default unit)' });
     // Units first, then keys not yet on the line.
     const items = complete('vitals hr 80 |');
     const firstKey = items.findIndex((c) => c.kind === 'key');
@@ -151,6 +152,21 @@ describe('units', () => {
     expect(labels('abg 7.28/56/71/26 |').slice(0, 2)).toEqual(['mmHg', 'kPa']);
     expect(labels('oxygen cannula 2 |')[0]).toBe('L/min');
     expect(labels('oxygen cpap 8 |').slice(0, 2)).toEqual(['cmH2O', 'mbar']);
+  });
+
+  it("offers a gas pressure's units with the note's gas unit first, where bare numbers are read in it", () => {
+    const first = (marked: string, settings = {}) => {
+      const { result, position } = noteAt(marked, settings);
+      return completionsAt(result, position).filter((c) => c.kind === 'unit').map((c) => [c.label, c.detail]);
+    };
+    const kpaFirst = [['kPa', "PaO2 (the note's gas unit)"], ['mmHg', 'PaO2']];
+    expect(first('units gas kPa\n@ 08:00\nabg po2 9.5 |')).toEqual(kpaFirst);
+    expect(first('@ 08:00\nunits gas kPa\nabg po2 9.5 |')).toEqual(kpaFirst);
+    expect(first('@ 08:00\nabg po2 9.5 |', { gasUnit: 'kPa' })).toEqual(kpaFirst);
+    expect(first('units gas kPa\nabg 7.31/5.9/8.1/28 |').map(([l]) => l)).toEqual(['kPa', 'mmHg']);
+    // A header line follows the header's gas unit.
+    expect(first('units gas kPa\nplace pb 90 |').map(([l]) => l)).toEqual(['kPa', 'mmHg']);
+    expect(first('units gas kPa\n@ 08:00\nunits gas mmHg\nabg po2 71 |').map(([l]) => l)).toEqual(['mmHg', 'kPa']);
   });
 
   it('a unit being typed glued to its number replaces only the unit', () => {

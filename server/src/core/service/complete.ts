@@ -6,7 +6,8 @@
  * - after a section word or a comma: the section's keys not yet used on the line (an oxygen
  *   line starts with its device; a gas line may start with a shorthand);
  * - after a key that takes a word (`mode`, `sex`, `gas`, `device`): its words;
- * - after a key and a number (or a shorthand gas, or a device's flow): the units it takes, then
+ * - after a key and a number (or a shorthand gas, or a device's flow): the units it takes (for a
+ *   gas pressure the note's gas unit first, as a bare number is read in it), then
  *   the keys that may follow (a unit may be left out); on an oxygen line, the keys of its device
  *   (no flow on room air; IPAP and EPAP for NIV, a level for CPAP).
  * Completions are narrowed to those whose label starts with the text typed before the cursor, and
@@ -23,7 +24,8 @@ import { parseLine } from '../syntax/parser';
 import type { ItemNode, LineNode } from '../syntax/tree';
 import type { Position, Range } from '../types';
 import { ITEM_COLUMN } from './format';
-import { isValidPosition, itemAt, lineAt, lineRange } from './locate';
+import { isValidPosition, itemAt, lineAt, lineRange, timepointOfLine } from './locate';
+import type { GasUnit } from './unit-conversion';
 import type { CompletionInfo } from './types';
 
 const KIND_DETAIL: Readonly<Record<SectionDef['kind'], string>> = {
@@ -37,10 +39,10 @@ export function completionsAt(result: NoteResult, position: Position): Completio
   if (!isValidPosition(position)) return [];
   const node = lineAt(result, position.line);
   if (!node || position.character > node.text.length) return [];
-  return keepNextWord(node, position.character, completionsOnLine(node, position));
+  return keepNextWord(node, position.character, completionsOnLine(node, position, () => gasUnitOfLine(result, position.line)));
 }
 
-function completionsOnLine(node: LineNode, position: Position): CompletionInfo[] {
+function completionsOnLine(node: LineNode, position: Position, gasUnit: () => GasUnit): CompletionInfo[] {
   const text = node.text;
   const ch = position.character;
   const hash = text.indexOf('#');
@@ -120,7 +122,7 @@ function completionsOnLine(node: LineNode, position: Position): CompletionInfo[]
 
   if (afterNumber) {
     // `key 71mm|`: the number belongs to the last key, which has no value yet.
-    if (item.key && !item.value && field && field.kind !== 'word' && !isFraction(field, number.value)) return narrow(unitCompletions(field, unitRange), unitTyped);
+    if (item.key && !item.value && field && field.kind !== 'word' && !isFraction(field, number.value)) return narrow(unitCompletions(field, unitRange, gasUnit), unitTyped);
     return [];
   }
   if (!item.value) {
@@ -131,7 +133,7 @@ function completionsOnLine(node: LineNode, position: Position): CompletionInfo[]
   if (item.unit === null && item.value.kind !== 'word' && !(field && item.number !== null && isFraction(field, item.number))) {
     // Its units first, then the next keys: a unit may be left out (`hr 80 rr 18`).
     const unitField = item.implied === 'shorthand' ? shorthandUnitField(section.id, items) : field;
-    const units = unitField ? narrow(unitCompletions(unitField, replace), typed) : [];
+    const units = unitField ? narrow(unitCompletions(unitField, replace, gasUnit), typed) : [];
     return [...units, ...keys()];
   }
   return keys();
@@ -319,17 +321,30 @@ function wordCompletions(field: FieldDef | undefined, replace: Range): Completio
   return words.map((w) => ({ label: w, kind: 'word' as const, detail: field.label, insertText: w, replace }));
 }
 
-function unitCompletions(field: FieldDef, replace: Range): CompletionInfo[] {
+/**
+ * The units a field takes, the one a bare number is read in first: the field's default unit, or
+ * for a gas pressure the note's gas unit where the line is (kPa after `units gas kPa`).
+ */
+function unitCompletions(field: FieldDef, replace: Range, gasUnit: () => GasUnit): CompletionInfo[] {
   const out: CompletionInfo[] = [];
   const seen = new Set<string>();
-  (field.units ?? []).forEach((id, i) => {
-    if (id === 'fraction' || id === 'ph') return;
+  const units = field.units ?? [];
+  const gas = field.bare === 'gas' ? gasUnit() : null;
+  const bare = gas !== null && units.includes(gas) ? gas : units[0];
+  for (const id of bare === undefined ? units : [bare, ...units.filter((u) => u !== bare)]) {
+    if (id === 'fraction' || id === 'ph') continue;
     const label = unitLabel(id);
-    if (seen.has(label)) return;
+    if (seen.has(label)) continue;
     seen.add(label);
-    out.push({ label, kind: 'unit', detail: `${field.label}${i === 0 ? ' (default unit)' : ''}`, insertText: label, replace });
-  });
+    const note = id !== bare ? '' : gas !== null ? " (the note's gas unit)" : ' (default unit)';
+    out.push({ label, kind: 'unit', detail: `${field.label}${note}`, insertText: label, replace });
+  }
   return out;
+}
+
+/** The gas unit bare gas pressures are read in on a line: its timepoint's, or on the header's lines the header's. */
+function gasUnitOfLine(result: NoteResult, line: number): GasUnit {
+  return timepointOfLine(result, line)?.gasUnit ?? result.analysis.timeline.headerGasUnit;
 }
 
 /** The unit after a shorthand applies to its two pressures. */
