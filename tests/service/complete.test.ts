@@ -249,6 +249,10 @@ describe('right before a word', () => {
     expect(labels('vent peep 8 |cm')).toEqual(['cmH2O', 'mbar']);
     expect(labels('oxygen cannula 2 |L/min')).toEqual(['L/min']);
     expect(labels('vitals hr 80 |/min, rr 18')).toEqual(['/min']);
+    // A number without a key waits for one: the keys go in front of it.
+    const { text, result, position } = noteAt('vitals    |118');
+    const hr = completionsAt(result, position).find((c) => c.label === 'hr');
+    expect(applyEdits(text, [{ range: hr!.replace!, newText: hr!.insertText }])).toBe('vitals    hr 118');
   });
 
   it('offers nothing in front of a timepoint, or in front of its time or in place of part of it', () => {
