@@ -167,6 +167,9 @@ describe('units', () => {
     // A header line follows the header's gas unit.
     expect(first('units gas kPa\nplace pb 90 |').map(([l]) => l)).toEqual(['kPa', 'mmHg']);
     expect(first('units gas kPa\n@ 08:00\nunits gas mmHg\nabg po2 71 |').map(([l]) => l)).toEqual(['mmHg', 'kPa']);
+    // As the note is read: a `units gas` line counts from its line on, also within a timepoint.
+    expect(first('@ 08:00\nabg po2 80 |\nunits gas kPa\nabg pco2 5.3').map(([l]) => l)).toEqual(['mmHg', 'kPa']);
+    expect(first('place pb 90 |\nunits gas kPa\n@ 08:00').map(([l]) => l)).toEqual(['mmHg', 'kPa']);
   });
 
   it('a unit being typed glued to its number replaces only the unit', () => {

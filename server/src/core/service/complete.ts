@@ -24,7 +24,8 @@ import { parseLine } from '../syntax/parser';
 import type { ItemNode, LineNode } from '../syntax/tree';
 import type { Position, Range } from '../types';
 import { ITEM_COLUMN } from './format';
-import { isValidPosition, itemAt, lineAt, lineRange, timepointOfLine } from './locate';
+import { isValidPosition, itemAt, lineAt, lineRange } from './locate';
+import type { StatedValue } from '../analysis/model';
 import type { GasUnit } from './unit-conversion';
 import type { CompletionInfo } from './types';
 
@@ -342,9 +343,25 @@ function unitCompletions(field: FieldDef, replace: Range, gasUnit: () => GasUnit
   return out;
 }
 
-/** The gas unit bare gas pressures are read in on a line: its timepoint's, or on the header's lines the header's. */
+/**
+ * The gas unit bare gas pressures are read in on a line, as the timeline reads them: that of the
+ * last `units gas` line above it (in the header or at any timepoint), else the gasUnit setting.
+ */
 function gasUnitOfLine(result: NoteResult, line: number): GasUnit {
-  return timepointOfLine(result, line)?.gasUnit ?? result.analysis.timeline.headerGasUnit;
+  const { header, timepoints } = result.analysis.timeline;
+  let unit: GasUnit = result.settings.gasUnit;
+  let at = -1;
+  const consider = (stated: readonly StatedValue[]) => {
+    for (const s of stated) {
+      if (s.fieldId === 'gas_unit' && s.line < line && s.line > at && (s.word === 'kPa' || s.word === 'mmHg')) { unit = s.word; at = s.line; }
+    }
+  };
+  consider(header);
+  for (const tp of timepoints) {
+    if (tp.startLine >= line) break;
+    consider(tp.stated);
+  }
+  return unit;
 }
 
 /** The unit after a shorthand applies to its two pressures. */
