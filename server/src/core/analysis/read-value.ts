@@ -143,7 +143,7 @@ const EMPTY_ITEMS: readonly ItemNode[] = Object.freeze([]);
 export function readItem(item: ItemNode, section: SectionId, line: number, ctx: ReadContext, issues: ReadIssue[], lineItems: readonly ItemNode[] = EMPTY_ITEMS): StatedValue | null {
   const field = item.field;
   if (!field) {
-    if (item.key) issues.push(unknownKeyIssue(item, section, line));
+    if (item.key) issues.push(unknownKeyIssue(item, section, line, lineItems));
     return null;
   }
   // Read through the item's flat accessors: its value and unit are built only where needed.
@@ -303,10 +303,12 @@ function otherUnitIssue(item: ItemNode, field: FieldDef, line: number, readUnit:
   };
 }
 
-function unknownKeyIssue(item: ItemNode, section: SectionId, line: number): ReadIssue {
+function unknownKeyIssue(item: ItemNode, section: SectionId, line: number, lineItems: readonly ItemNode[]): ReadIssue {
   const key = item.key!;
-  const candidates = keysInSection(section);
-  const near = closest(key.text, candidates);
+  // The first word of an oxygen line is its device: a misspelt one (`oxygen canula 2`) reads as an
+  // unknown key, and is offered the devices it is near.
+  const devices = section === 'oxygen' && lineItems[0] === item ? nearDevices(key.text) : [];
+  const near = [...devices, ...closest(key.text, keysInSection(section))].slice(0, 3);
   const elsewhere = FIELDS.filter((f) => f.aliases.includes(key.text.toLowerCase())).flatMap((f) => f.sections);
   const where = elsewhere.length > 0 ? ` (\`${key.text}\` belongs on a ${[...new Set(elsewhere)].join(' or ')} line)` : '';
   const hint = near.length > 0 ? ` Did you mean ${near.map((k) => `\`${k}\``).join(' or ')}?` : '';
@@ -314,9 +316,20 @@ function unknownKeyIssue(item: ItemNode, section: SectionId, line: number): Read
     check: 'unknown-key',
     line,
     span: key.span,
-    message: `\`${key.text}\` is not a key of ${section} lines${where}.${hint}`,
+    message: `\`${key.text}\` is ${devices.length > 0 ? 'neither a device nor a key' : 'not a key'} of ${section} lines${where}.${hint}`,
     fixes: near.map((k) => ({ title: `Change to \`${k}\``, edits: [{ span: key.span, newText: k }], preferred: near.length === 1 && safeKeyFix(key.text.toLowerCase(), k.toLowerCase()) })),
   };
+}
+
+/** The oxygen devices a word is near (`canula` → cannula), each by its usual name. */
+function nearDevices(word: string): string[] {
+  const words = FIELDS.find((f) => f.id === 'device')?.words ?? {};
+  const out: string[] = [];
+  for (const spelling of closest(word, Object.keys(words))) {
+    const device = words[spelling];
+    if (device !== undefined && !out.includes(device)) out.push(device);
+  }
+  return out;
 }
 
 /**
