@@ -244,7 +244,7 @@ export function clockText(minutes: number): string {
 }
 
 /** The time as written after `@` (also one that could not be read), without the label. */
-function writtenTime(node: TimepointLine, end: number): string {
+export function writtenTime(node: TimepointLine, end: number): string {
   if (node.time) return node.time.text;
   return trimmed(node.text.slice(node.marker.span.end, node.label ? node.label.span.start : end), ',');
 }
