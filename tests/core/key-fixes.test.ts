@@ -14,6 +14,29 @@ function keyFixes(text: string): { key: string; titles: string[]; preferred: boo
   }));
 }
 
+describe('a misspelt device written first on an oxygen line', () => {
+  it('is offered the devices it is near, the fix applied reads the device and its flow', () => {
+    const text = '@ 08:00\noxygen    canula 2 L/min\noxygen    hfcn 40 L/min\n';
+    const found = checkNote(text).findings.filter((f) => f.code === 'PN201');
+    expect(found.map((f) => f.message)).toEqual([
+      '`canula` is neither a device nor a key of oxygen lines. Did you mean `cannula`?',
+      '`hfcn` is neither a device nor a key of oxygen lines. Did you mean `hfnc`?',
+    ]);
+    expect(keyFixes(text).map((f) => [f.key, f.titles, f.preferred])).toEqual([
+      ['canula', ['Change to `cannula`'], [true]],
+      // Two letters swapped count as one edit, as for keys.
+      ['hfcn', ['Change to `hfnc`'], [true]],
+    ]);
+    const fixed = checkNote('@ 08:00\noxygen    cannula 2 L/min\n');
+    expect(fixed.findings).toEqual([]);
+    expect(fixed.analysis.timeline.timepoints[0]!.values.numberOf('o2_flow')).toBe(2);
+  });
+
+  it('is not offered a device after the first word, where a device cannot stand', () => {
+    expect(keyFixes('@ 08:00\noxygen    mask 10, maks 5\n').map((f) => f.titles)).toEqual([[]]);
+  });
+});
+
 describe('did-you-mean fixes for unknown keys', () => {
   it('never marks a fix of a one- or two-letter key as safe: `p` is one letter from `k`, `x` from `t`', () => {
     const fixes = keyFixes('@ 08:00\nlabs      na 140, p 1.2\nvitals    x 37\n');

@@ -137,7 +137,8 @@ describe('units', () => {
     expect(units('vitals temp 38.2 |')).toEqual(['C', 'F']);
     expect(units('vent fio2 40 |')).toEqual(['%']);
     expect(units('labs hb 11 |')).toEqual(['g/dL', 'g/L']);
-    expect(complete('abg po2 71 |')[0]).toMatchObject({ kind: 'unit', detail: 'PaO2 (default unit)' });
+    expect(complete('abg po2 71 |')[0]).toMatchObject({ kind: 'unit', detail: "PaO2 (the note's gas unit)" });
+    expect(complete('vitals temp 38.2 |')[0]).toMatchObject({ kind: 'unit', detail: 'Temperature (default unit)' });
     // Units first, then keys not yet on the line.
     const items = complete('vitals hr 80 |');
     const firstKey = items.findIndex((c) => c.kind === 'key');
@@ -151,6 +152,24 @@ describe('units', () => {
     expect(labels('abg 7.28/56/71/26 |').slice(0, 2)).toEqual(['mmHg', 'kPa']);
     expect(labels('oxygen cannula 2 |')[0]).toBe('L/min');
     expect(labels('oxygen cpap 8 |').slice(0, 2)).toEqual(['cmH2O', 'mbar']);
+  });
+
+  it("offers a gas pressure's units with the note's gas unit first, where bare numbers are read in it", () => {
+    const first = (marked: string, settings = {}) => {
+      const { result, position } = noteAt(marked, settings);
+      return completionsAt(result, position).filter((c) => c.kind === 'unit').map((c) => [c.label, c.detail]);
+    };
+    const kpaFirst = [['kPa', "PaO2 (the note's gas unit)"], ['mmHg', 'PaO2']];
+    expect(first('units gas kPa\n@ 08:00\nabg po2 9.5 |')).toEqual(kpaFirst);
+    expect(first('@ 08:00\nunits gas kPa\nabg po2 9.5 |')).toEqual(kpaFirst);
+    expect(first('@ 08:00\nabg po2 9.5 |', { gasUnit: 'kPa' })).toEqual(kpaFirst);
+    expect(first('units gas kPa\nabg 7.31/5.9/8.1/28 |').map(([l]) => l)).toEqual(['kPa', 'mmHg']);
+    // A header line follows the header's gas unit.
+    expect(first('units gas kPa\nplace pb 90 |').map(([l]) => l)).toEqual(['kPa', 'mmHg']);
+    expect(first('units gas kPa\n@ 08:00\nunits gas mmHg\nabg po2 71 |').map(([l]) => l)).toEqual(['mmHg', 'kPa']);
+    // As the note is read: a `units gas` line counts from its line on, also within a timepoint.
+    expect(first('@ 08:00\nabg po2 80 |\nunits gas kPa\nabg pco2 5.3').map(([l]) => l)).toEqual(['mmHg', 'kPa']);
+    expect(first('place pb 90 |\nunits gas kPa\n@ 08:00').map(([l]) => l)).toEqual(['mmHg', 'kPa']);
   });
 
   it('a unit being typed glued to its number replaces only the unit', () => {
@@ -223,6 +242,29 @@ describe('right before a word', () => {
     expect(applyEdits(text, [{ range: unit!.replace!, newText: unit!.insertText }])).toBe('@ 08:00\nvitals hr 80 /min rr 18');
     const kpa = complete('abg po2 71 |pco2 40').find((c) => c.label === 'kPa');
     expect(kpa).toMatchObject({ insertText: 'kPa ', replace: { start: { line: 0, character: 11 }, end: { line: 0, character: 11 } } });
+  });
+
+  it('offers nothing else before a number or a unit: it would take the number or part the unit from it', () => {
+    // A key in front of a device's flow would take the flow for its value (`oxygen cannula fio2 2 L/min`).
+    expect(complete('oxygen    cannula |2 L/min')).toEqual([]);
+    expect(complete('abg |7.31/56/71/26')).toEqual([]);
+    // Before a unit, only units (in its place), never a key in front of it (`peep 8 rate cmH2O`).
+    expect(labels('vent peep 8 |cm')).toEqual(['cmH2O', 'mbar']);
+    expect(labels('oxygen cannula 2 |L/min')).toEqual(['L/min']);
+    expect(labels('vitals hr 80 |/min, rr 18')).toEqual(['/min']);
+    // A number without a key waits for one: the keys go in front of it.
+    const { text, result, position } = noteAt('vitals    |118');
+    const hr = completionsAt(result, position).find((c) => c.label === 'hr');
+    expect(applyEdits(text, [{ range: hr!.replace!, newText: hr!.insertText }])).toBe('vitals    hr 118');
+  });
+
+  it('offers nothing in front of a timepoint, or in front of its time or in place of part of it', () => {
+    for (const marked of ['|@ day 1 08:00  arrival', '|@', '@ |day 1 08:00', '@ d|ay 1 08:00', '@ day 1 |08:00', '@ |08:00  arrival', '@ |+2h']) {
+      expect(complete(marked), marked).toEqual([]);
+    }
+    // With nothing after the cursor but a comment, times are offered as before.
+    expect(labels('@ | # later')).toEqual(['day N HH:MM', 'HH:MM', '+interval']);
+    expect(labels('@ d|')).toEqual(['day N HH:MM']);
   });
 });
 

@@ -5,6 +5,8 @@ import { allDerivations } from '../../server/src/core/analysis/analyse';
 import { checkNote } from '../../server/src/core/check-note';
 import { CAUTION, derivedHover, hoverAt } from '../../server/src/core/service';
 import { note, noteAt } from './cursor';
+import { SECTIONS } from '../../server/src/core/fields/sections';
+import { FIELDS } from '../../server/src/core/fields/registry';
 
 function hover(marked: string) {
   const { result, position } = noteAt(marked);
@@ -27,6 +29,14 @@ describe('hover on a section word', () => {
     expect(h?.markdown).toContain('do not carry forward');
     expect(h?.markdown).toContain('`po2` PaO2');
     expect(markdown('o2| cannula 2')).toContain('carry forward to later timepoints until restated');
+  });
+
+  it('writes the code in a description as code, not as escaped backticks', () => {
+    const md = markdown('uni|ts gas kPa');
+    expect(md).toContain('Default unit for gas pressures written without one (`gas mmHg` or `gas kPa`).');
+    expect(md).not.toContain('\\`');
+    // Every description opens as many code spans as it closes.
+    for (const d of [...SECTIONS, ...FIELDS].map((x) => x.description)) expect(d.split('`').length % 2, d).toBe(1);
   });
 });
 

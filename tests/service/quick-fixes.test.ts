@@ -202,6 +202,31 @@ describe('a fix that would make a value impossible', () => {
   });
 });
 
+describe('a percentage written after an oxygen device', () => {
+  it('is offered first as the FiO2 it gives (`venturi fio2 40 %`), before a flow in L/min that would read 40 L/min', () => {
+    for (const [line, fixed] of [['oxygen    venturi 40 |%', 'oxygen    venturi fio2 40 %'], ['oxygen    hfnc 60|%', 'oxygen    hfnc fio2 60%']] as const) {
+      const { text, result, range } = noteAt(`@ 08:00\n${line}\nabg       7.40/40/80/24`);
+      const actions = codeActions(result, range).filter((a) => a.kind === 'quickfix');
+      expect(actions.map((a) => a.title), line).toEqual([`Write it as the FiO2: ${fixed.slice(fixed.indexOf('fio2'))}`, 'Change to L/min']);
+      const after = applyEdits(text, actions[0]!.edits);
+      expect(after.split('\n')[1]).toBe(fixed);
+      expect(problemsAfter(text, result, actions[0]!)).toEqual([]);
+      // The FiO2 is read, and P/F follows from it.
+      expect(checkNote(after).analysis.timeline.timepoints[0]!.values.numberOf('fio2'), line).toBeCloseTo(Number(fixed.match(/(\d+) ?%/)![1]) / 100);
+    }
+  });
+
+  it('is not offered as a FiO2 where it could not be one, for a flow written with a key, or beside a FiO2', () => {
+    const low = noteAt('@ 08:00\noxygen    mask 15 |%');
+    expect(codeActions(low.result, low.range).map((a) => a.title)).not.toContain('Write it as the FiO2: fio2 15 %');
+    const keyed = noteAt('@ 08:00\noxygen    hfnc flow 60 |%');
+    expect(codeActions(keyed.result, keyed.range).some((a) => a.title.startsWith('Write it as the FiO2'))).toBe(false);
+    // A line with a FiO2 of its own would state it twice.
+    const twice = noteAt('@ 08:00\noxygen    venturi 40 |%, fio2 0.35');
+    expect(codeActions(twice.result, twice.range).map((a) => a.title)).toEqual(['Change to L/min']);
+  });
+});
+
 describe('a fix that lets a value be read', () => {
   it('may reveal an error between values as written, which is not the fix\'s doing: `plateau 0.0, peep 1e3cmH2O`', () => {
     const text = 'vent plateau 0.0, peep 1e3cmH2O';

@@ -31,8 +31,17 @@ describe('documentSymbols', () => {
       { name: 'header', detail: 'patient, place', kind: 'header', lines: [1, 2], children: ['patient', 'place'] },
       { name: 'admitted 😀', detail: 'day 1 22:15', kind: 'timepoint', lines: [4, 6], children: ['vent', 'abg'] },
       { name: 'PEEP raised', detail: '+3h45 (day 2, 02:00)', kind: 'timepoint', lines: [9, 11], children: ['vent', 'note'] },
-      { name: '09:00', detail: '09:00', kind: 'timepoint', lines: [12, 12], children: [] },
+      { name: '09:00', detail: '09:00 (day 2)', kind: 'timepoint', lines: [12, 12], children: [] },
     ]);
+  });
+
+  it('names the day of a clock time written alone once the note is past its first day', () => {
+    const days = documentSymbols(checkNote(note('@ day 1 23:30  night', 'vitals hr 90', '@ 00:30  after midnight', 'vitals hr 80', '@ 06:00', '@ day 3', '@ 08:00')));
+    expect(days.map((s) => s.detail)).toEqual(['day 1 23:30', '00:30 (day 2)', '06:00 (day 2)', 'day 3', '08:00 (day 3)']);
+    // A time that could not be read is named as written.
+    expect(documentSymbols(checkNote(note('@ 08:00', '@ 25:10  bad', '@'))).map((s) => [s.name, s.detail])).toEqual([['08:00', '08:00'], ['bad', '25:10 (not read)'], ['line 3', 'time unknown']]);
+    // On the first day a clock time says it all.
+    expect(documentSymbols(checkNote(note('@ 08:00', '@ 09:30'))).map((s) => s.detail)).toEqual(['08:00', '09:30']);
   });
 
   it('selects the `@` line, spans whole lines in UTF-16 and keeps children inside their parent', () => {

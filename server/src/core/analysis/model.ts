@@ -92,8 +92,9 @@ export interface Timepoint {
   readonly barometricMmhg: number | null;
   /**
    * The gas unit in force at the end of the timepoint: the last `units gas` of the header or of
-   * a timepoint up to this one, else the gasUnit setting. Bare gas numbers are read in it, and
-   * gas pressures are shown in it (values stay mmHg inside the core).
+   * a timepoint up to this one, else the gasUnit setting. Gas pressures are shown in it (values
+   * stay mmHg inside the core). A bare gas number is read in the unit in force at its own line, as
+   * the note is read: a `units gas` line counts from its line on, also within a timepoint.
    */
   readonly gasUnit: 'mmHg' | 'kPa';
   /**

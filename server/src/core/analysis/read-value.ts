@@ -133,14 +133,17 @@ class Stated implements StatedValue {
   }
 }
 
+const EMPTY_ITEMS: readonly ItemNode[] = Object.freeze([]);
+
 /**
  * Reads one item into a stated value in its field's canonical unit; problems met on the way are
- * appended to `issues`. Returns null when there is nothing to state (unknown key, no value).
+ * appended to `issues` (`lineItems`, the items of its line, shape the fixes offered). Returns null
+ * when there is nothing to state (unknown key, no value).
  */
-export function readItem(item: ItemNode, section: SectionId, line: number, ctx: ReadContext, issues: ReadIssue[]): StatedValue | null {
+export function readItem(item: ItemNode, section: SectionId, line: number, ctx: ReadContext, issues: ReadIssue[], lineItems: readonly ItemNode[] = EMPTY_ITEMS): StatedValue | null {
   const field = item.field;
   if (!field) {
-    if (item.key) issues.push(unknownKeyIssue(item, section, line));
+    if (item.key) issues.push(unknownKeyIssue(item, section, line, lineItems));
     return null;
   }
   // Read through the item's flat accessors: its value and unit are built only where needed.
@@ -174,7 +177,7 @@ export function readItem(item: ItemNode, section: SectionId, line: number, ctx: 
     const candidates = unitsForSpelling(item.unitText);
     for (const u of candidates) if (field.units?.includes(u.id)) { readUnit = u; break; }
     if (!readUnit) {
-      issues.push(candidates.length === 0 ? unknownUnitIssue(item, field, line) : unitNotAllowedIssue(item, field, line, candidates, written));
+      issues.push(candidates.length === 0 ? unknownUnitIssue(item, field, line) : unitNotAllowedIssue(item, field, line, candidates, written, lineItems));
       return new Stated(field, section, line, item, null, null, null, null, false, null, false);
     }
   } else {
@@ -300,10 +303,12 @@ function otherUnitIssue(item: ItemNode, field: FieldDef, line: number, readUnit:
   };
 }
 
-function unknownKeyIssue(item: ItemNode, section: SectionId, line: number): ReadIssue {
+function unknownKeyIssue(item: ItemNode, section: SectionId, line: number, lineItems: readonly ItemNode[]): ReadIssue {
   const key = item.key!;
-  const candidates = keysInSection(section);
-  const near = closest(key.text, candidates);
+  // The first word of an oxygen line is its device: a misspelt one (`oxygen canula 2`) reads as an
+  // unknown key, and is offered the devices it is near.
+  const devices = section === 'oxygen' && lineItems[0] === item ? nearDevices(key.text) : [];
+  const near = [...devices, ...closest(key.text, keysInSection(section))].slice(0, 3);
   const elsewhere = FIELDS.filter((f) => f.aliases.includes(key.text.toLowerCase())).flatMap((f) => f.sections);
   const where = elsewhere.length > 0 ? ` (\`${key.text}\` belongs on a ${[...new Set(elsewhere)].join(' or ')} line)` : '';
   const hint = near.length > 0 ? ` Did you mean ${near.map((k) => `\`${k}\``).join(' or ')}?` : '';
@@ -311,9 +316,20 @@ function unknownKeyIssue(item: ItemNode, section: SectionId, line: number): Read
     check: 'unknown-key',
     line,
     span: key.span,
-    message: `\`${key.text}\` is not a key of ${section} lines${where}.${hint}`,
+    message: `\`${key.text}\` is ${devices.length > 0 ? 'neither a device nor a key' : 'not a key'} of ${section} lines${where}.${hint}`,
     fixes: near.map((k) => ({ title: `Change to \`${k}\``, edits: [{ span: key.span, newText: k }], preferred: near.length === 1 && safeKeyFix(key.text.toLowerCase(), k.toLowerCase()) })),
   };
+}
+
+/** The oxygen devices a word is near (`canula` → cannula), each by its usual name. */
+function nearDevices(word: string): string[] {
+  const words = FIELDS.find((f) => f.id === 'device')?.words ?? {};
+  const out: string[] = [];
+  for (const spelling of closest(word, Object.keys(words))) {
+    const device = words[spelling];
+    if (device !== undefined && !out.includes(device)) out.push(device);
+  }
+  return out;
 }
 
 /**
@@ -356,18 +372,38 @@ function unknownUnitIssue(item: ItemNode, field: FieldDef, line: number): ReadIs
  * only those in which the written number is possible (`fio2 45 mmHg` is offered %, not the
  * fraction 45). A pair, or a number possible in none of them, is offered them all.
  */
-function unitNotAllowedIssue(item: ItemNode, field: FieldDef, line: number, candidates: readonly UnitDef[], written: number | null): ReadIssue {
+function unitNotAllowedIssue(item: ItemNode, field: FieldDef, line: number, candidates: readonly UnitDef[], written: number | null, lineItems: readonly ItemNode[]): ReadIssue {
   const unit = item.unit!;
   const allowed = (field.units ?? []).map(displayUnit);
   const possible = written === null ? [] : unitsWithin(field, written, null, field.hard).map((u) => displayUnit(u.id));
   const offered = possible.length > 0 ? possible : allowed;
+  const fixes: LineFix[] = offered.map((u) => ({ title: `Change to ${u}`, edits: [{ span: unit.span, newText: u }] }));
+  const fio2 = asFio2(item, candidates, written, lineItems);
+  if (fio2) fixes.unshift(fio2);
   return {
     check: 'unit-not-allowed',
     line,
     span: unit.span,
     message: `${field.label} is not measured in ${candidates[0] ? displayUnit(candidates[0].id) : unit.text}; it takes ${wordList(allowed, 'or')}.`,
-    fixes: offered.map((u) => ({ title: `Change to ${u}`, edits: [{ span: unit.span, newText: u }] })),
+    fixes,
   };
+}
+
+/**
+ * A percentage after an oxygen device (`venturi 40 %`, `hfnc 60 %`) is the FiO2 the device
+ * gives, not its flow: the fix that keeps what was meant writes the key (`venturi fio2 40 %`),
+ * offered first and before `Change to L/min`, which would read 40 L/min. Null unless the number is
+ * a possible FiO2 in percent and the line states no FiO2 of its own (it would then be stated twice).
+ */
+function asFio2(item: ItemNode, candidates: readonly UnitDef[], written: number | null, lineItems: readonly ItemNode[]): LineFix | null {
+  if (item.implied !== 'device-flow' || written === null || !item.value) return null;
+  for (let k = 0; k < lineItems.length; k++) if (lineItems[k]!.field?.id === 'fio2') return null;
+  const percent = candidates.find((u) => u.id === '%');
+  const fio2 = FIELDS.find((f) => f.id === 'fio2');
+  const fraction = percent && fio2?.unit ? convert(written, percent, unitById(fio2.unit)!) : null;
+  if (fraction === null || !within(fraction, fio2!.hard)) return null;
+  const unit = item.unit!;
+  return { title: `Write it as the FiO2: fio2 ${item.value.text}${unit.span.start === item.value.span.end ? '' : ' '}${unit.text}`, edits: [{ span: { start: item.value.span.start, end: item.value.span.start }, newText: 'fio2 ' }] };
 }
 
 /** How a unit id is written in a note (`fraction` and `%sat` are internal ids). */

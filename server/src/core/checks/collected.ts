@@ -96,7 +96,7 @@ export const unknownUnit = readCheck('PN202', 'unknown-unit', 'Unknown unit', 'e
 export const unitNotAllowed = readCheck('PN203', 'unit-not-allowed', 'Unit not allowed for this field', 'error', ['units'], FORMAT_RULE, {
   fires: 'The unit is known but measures something else (e.g. a rate in mmHg).',
   example: 'vitals hr 118 mmHg',
-  fix: 'Write a unit the field takes, or none.',
+  fix: 'Write a unit the field takes, or none. A percentage after an oxygen device (`venturi 40 %`) is offered as the FiO2 it gives (`venturi fio2 40 %`) before a flow in L/min.',
 });
 
 export const otherUnitLikely = readCheck('PN204', 'other-unit-likely', 'Value reads as another unit', 'warning', ['units', 'plausibility'], 'common practice, no source: the soft bounds of the field registry, widened for PaO2 and PaCO2 (our convention)', {

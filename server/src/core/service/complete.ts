@@ -6,11 +6,14 @@
  * - after a section word or a comma: the section's keys not yet used on the line (an oxygen
  *   line starts with its device; a gas line may start with a shorthand);
  * - after a key that takes a word (`mode`, `sex`, `gas`, `device`): its words;
- * - after a key and a number (or a shorthand gas, or a device's flow): the units it takes, then
+ * - after a key and a number (or a shorthand gas, or a device's flow): the units it takes (for a
+ *   gas pressure the note's gas unit first, as a bare number is read in it), then
  *   the keys that may follow (a unit may be left out); on an oxygen line, the keys of its device
  *   (no flow on room air; IPAP and EPAP for NIV, a level for CPAP).
  * Completions are narrowed to those whose label starts with the text typed before the cursor, and
- * replace the whole word under the cursor (the part after it too: `sp|2` becomes `spo2`).
+ * replace the whole word under the cursor (the part after it too: `sp|2` becomes `spo2`). Nothing
+ * is offered where it would break what follows the cursor: in front of a number, a unit, a
+ * timepoint's `@` or its time.
  */
 import type { NoteResult } from '../check-note';
 import { displayUnit } from '../analysis/read-value';
@@ -23,6 +26,8 @@ import type { ItemNode, LineNode } from '../syntax/tree';
 import type { Position, Range } from '../types';
 import { ITEM_COLUMN } from './format';
 import { isValidPosition, itemAt, lineAt, lineRange } from './locate';
+import type { StatedValue } from '../analysis/model';
+import type { GasUnit } from './unit-conversion';
 import type { CompletionInfo } from './types';
 
 const KIND_DETAIL: Readonly<Record<SectionDef['kind'], string>> = {
@@ -36,10 +41,10 @@ export function completionsAt(result: NoteResult, position: Position): Completio
   if (!isValidPosition(position)) return [];
   const node = lineAt(result, position.line);
   if (!node || position.character > node.text.length) return [];
-  return keepNextWord(node, position.character, completionsOnLine(node, position));
+  return keepNextWord(node, position.character, completionsOnLine(node, position, () => gasUnitOfLine(result, position.line)));
 }
 
-function completionsOnLine(node: LineNode, position: Position): CompletionInfo[] {
+function completionsOnLine(node: LineNode, position: Position, gasUnit: () => GasUnit): CompletionInfo[] {
   const text = node.text;
   const ch = position.character;
   const hash = text.indexOf('#');
@@ -60,6 +65,9 @@ function completionsOnLine(node: LineNode, position: Position): CompletionInfo[]
     return narrow(lineStartCompletions(restOfLine === '', lineRange(line, wordStart, wordEnd)), typed);
   }
   if (first.text.startsWith('@')) {
+    // A time written after the cursor (`@ |day 1 08:00`, `@ day 1 |08:00`) stays as it is: a
+    // snippet put in front of it, or in place of its first word, would leave two times on the line.
+    if (text.slice(typed === '' ? ch : wordEnd, hash >= 0 ? hash : text.length).trim() !== '') return [];
     if (chunks.length === 1 && first.text === '@') return narrow(timeCompletions(lineRange(line, wordStart, wordEnd)), typed);
     // `@ day 2 |`: the clock time comes next (a day alone leaves the time unknown).
     if (isDayWithoutTime(chunks)) return narrow([CLOCK_AFTER_DAY(lineRange(line, wordStart, wordEnd))], typed);
@@ -116,7 +124,7 @@ function completionsOnLine(node: LineNode, position: Position): CompletionInfo[]
 
   if (afterNumber) {
     // `key 71mm|`: the number belongs to the last key, which has no value yet.
-    if (item.key && !item.value && field && field.kind !== 'word' && !isFraction(field, number.value)) return narrow(unitCompletions(field, unitRange), unitTyped);
+    if (item.key && !item.value && field && field.kind !== 'word' && !isFraction(field, number.value)) return narrow(unitCompletions(field, unitRange, gasUnit), unitTyped);
     return [];
   }
   if (!item.value) {
@@ -127,7 +135,7 @@ function completionsOnLine(node: LineNode, position: Position): CompletionInfo[]
   if (item.unit === null && item.value.kind !== 'word' && !(field && item.number !== null && isFraction(field, item.number))) {
     // Its units first, then the next keys: a unit may be left out (`hr 80 rr 18`).
     const unitField = item.implied === 'shorthand' ? shorthandUnitField(section.id, items) : field;
-    const units = unitField ? narrow(unitCompletions(unitField, replace), typed) : [];
+    const units = unitField ? narrow(unitCompletions(unitField, replace, gasUnit), typed) : [];
     return [...units, ...keys()];
   }
   return keys();
@@ -141,12 +149,13 @@ function isFraction(field: FieldDef, value: number): boolean {
   return field.bare === 'fraction-or-percent' && value <= 1;
 }
 
-type Role = 'section' | 'key' | 'unit' | 'word' | 'number';
+type Role = 'section' | 'key' | 'unit' | 'word' | 'number' | 'timepoint';
 
 const ROLE_OF_KIND: Readonly<Record<CompletionInfo['kind'], Role | null>> = { section: 'section', key: 'key', unit: 'unit', word: 'word', snippet: null };
 
 /** What the word starting at `ch` is on its line: a section word, a key, a unit, a word value or a number. */
 function roleAt(node: LineNode, ch: number): Role | null {
+  if (node.kind === 'timepoint') return node.marker.span.start === ch ? 'timepoint' : null;
   if (node.kind !== 'section') return null;
   if (node.sectionToken.span.start === ch) return 'section';
   const hit = itemAt(node, ch);
@@ -159,17 +168,22 @@ function roleAt(node: LineNode, ch: number): Role | null {
  * With nothing typed before the cursor and a word right after it (`hr 80 |rr 18`), a completion
  * replaces that word only when it is the same kind of thing (a key for a key, a unit for a unit,
  * a mode for a mode); anything else is inserted before the word with a blank after it, so that
- * the word stays (`hr 80 /min rr 18`, never `hr 80 /min 18`).
+ * the word stays (`hr 80 /min rr 18`, never `hr 80 /min 18`). Before a number, a unit or the `@`
+ * of a timepoint nothing else is offered: whatever went in front would take the number for its
+ * own (`oxygen cannula fio2 2`), part a unit from its number (`peep 8 rate cmH2O`) or turn the
+ * timepoint into another line.
  */
 function keepNextWord(node: LineNode, ch: number, items: CompletionInfo[]): CompletionInfo[] {
   let role: Role | null | undefined;
-  return items.map((c) => {
+  const out: CompletionInfo[] = [];
+  for (const c of items) {
     const r = c.replace;
-    if (!r || r.start.character !== ch || r.end.character <= ch) return c;
+    if (!r || r.start.character !== ch || r.end.character <= ch) { out.push(c); continue; }
     role ??= roleAt(node, ch);
-    if (role !== null && ROLE_OF_KIND[c.kind] === role) return c;
-    return { ...c, insertText: `${c.insertText} `, replace: lineRange(r.start.line, ch, ch) };
-  });
+    if (role !== null && ROLE_OF_KIND[c.kind] === role) out.push(c);
+    else if (role !== 'number' && role !== 'unit' && role !== 'timepoint') out.push({ ...c, insertText: `${c.insertText} `, replace: lineRange(r.start.line, ch, ch) });
+  }
+  return out;
 }
 
 /**
@@ -309,17 +323,46 @@ function wordCompletions(field: FieldDef | undefined, replace: Range): Completio
   return words.map((w) => ({ label: w, kind: 'word' as const, detail: field.label, insertText: w, replace }));
 }
 
-function unitCompletions(field: FieldDef, replace: Range): CompletionInfo[] {
+/**
+ * The units a field takes, the one a bare number is read in first: the field's default unit, or
+ * for a gas pressure the note's gas unit where the line is (kPa after `units gas kPa`).
+ */
+function unitCompletions(field: FieldDef, replace: Range, gasUnit: () => GasUnit): CompletionInfo[] {
   const out: CompletionInfo[] = [];
   const seen = new Set<string>();
-  (field.units ?? []).forEach((id, i) => {
-    if (id === 'fraction' || id === 'ph') return;
+  const units = field.units ?? [];
+  const gas = field.bare === 'gas' ? gasUnit() : null;
+  const bare = gas !== null && units.includes(gas) ? gas : units[0];
+  for (const id of bare === undefined ? units : [bare, ...units.filter((u) => u !== bare)]) {
+    if (id === 'fraction' || id === 'ph') continue;
     const label = unitLabel(id);
-    if (seen.has(label)) return;
+    if (seen.has(label)) continue;
     seen.add(label);
-    out.push({ label, kind: 'unit', detail: `${field.label}${i === 0 ? ' (default unit)' : ''}`, insertText: label, replace });
-  });
+    const note = id !== bare ? '' : gas !== null ? " (the note's gas unit)" : ' (default unit)';
+    out.push({ label, kind: 'unit', detail: `${field.label}${note}`, insertText: label, replace });
+  }
   return out;
+}
+
+/**
+ * The gas unit bare gas pressures are read in on a line, as the timeline reads them: that of the
+ * last `units gas` line above it (in the header or at any timepoint), else the gasUnit setting.
+ */
+function gasUnitOfLine(result: NoteResult, line: number): GasUnit {
+  const { header, timepoints } = result.analysis.timeline;
+  let unit: GasUnit = result.settings.gasUnit;
+  let at = -1;
+  const consider = (stated: readonly StatedValue[]) => {
+    for (const s of stated) {
+      if (s.fieldId === 'gas_unit' && s.line < line && s.line > at && (s.word === 'kPa' || s.word === 'mmHg')) { unit = s.word; at = s.line; }
+    }
+  };
+  consider(header);
+  for (const tp of timepoints) {
+    if (tp.startLine >= line) break;
+    consider(tp.stated);
+  }
+  return unit;
 }
 
 /** The unit after a shorthand applies to its two pressures. */

@@ -22,7 +22,7 @@ import { unitsForSpelling } from '../fields/units';
 import { isBlank } from '../syntax/lexer';
 import { derivedValueText, otherSystemText } from './derived-hover';
 import { allStated, contentEnd, contentStart, isValidPosition, itemAt, lineAt, lineRange, showsKpaOnLine, spanContains, statedOf, timepointOfLine, type ItemHit } from './locate';
-import { cautionLine, code, escapeMarkdown, paragraphs } from './markdown';
+import { cautionLine, code, describedMarkdown, escapeMarkdown, paragraphs } from './markdown';
 import type { HoverInfo } from './types';
 
 export { derivedHover } from './derived-hover';
@@ -65,7 +65,7 @@ export function sectionMarkdown(id: SectionId): string {
   const keys = fieldsInSection(id).map((f) => `${code(f.aliases[0] ?? f.id)} ${escapeMarkdown(f.label)}`);
   return paragraphs([
     `**${code(id)} line**${aliases}`,
-    escapeMarkdown(section.description),
+    describedMarkdown(section.description),
     KIND_WORDS[section.kind],
     keys.length > 0 ? `Keys: ${keys.join(' · ')}` : null,
   ]);
@@ -86,7 +86,7 @@ function fieldMarkdown(result: NoteResult, node: SectionLine, hit: ItemHit): str
       : hit.item.implied === 'device-flow' ? 'the number after the device'
         : `${code(hit.item.key?.text ?? field.aliases[0] ?? field.id)}`;
   const head = `**${escapeMarkdown(field.label)}** — ${keyWords} on this ${code(node.section)} line`;
-  const parts: (string | null)[] = [head, escapeMarkdown(field.description)];
+  const parts: (string | null)[] = [head, describedMarkdown(field.description)];
   if (stated) {
     parts.push(valueText(stated, showsKpaOnLine(result, stated.line)), unitText(result, stated, field), originText(result, stated), usableText(stated, field), feedsText(result, stated));
   } else if (hit.item.value) {
@@ -249,7 +249,7 @@ export function clockText(minutes: number): string {
 }
 
 /** The time as written after `@` (also one that could not be read), without the label. */
-function writtenTime(node: TimepointLine, end: number): string {
+export function writtenTime(node: TimepointLine, end: number): string {
   if (node.time) return node.time.text;
   return trimmed(node.text.slice(node.marker.span.end, node.label ? node.label.span.start : end), ',');
 }

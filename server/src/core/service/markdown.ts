@@ -11,6 +11,14 @@ export function escapeMarkdown(text: string): string {
 }
 
 /**
+ * Pneumark's own prose (a section's or a field's description), in which words between backticks
+ * are code (`gas kPa`): those become code spans, the rest is escaped as text.
+ */
+export function describedMarkdown(text: string): string {
+  return text.split('`').map((part, i) => (i % 2 === 1 ? code(part) : escapeMarkdown(part))).join('');
+}
+
+/**
  * Inline code that survives backticks inside the text. Invisible and reordering characters are
  * shown escaped (`h\u{200D}r`), as in messages: a hover must not quote `hr` where the note holds
  * something else.
