@@ -203,9 +203,9 @@ export const pfRatioAltitude = defineDerived({
   compute(c) {
     const pf = c.derived('pf_ratio', 'P/F');
     const pb = c.derived('barometric', 'PB');
-    // A P/F withheld (PN401) withholds its adjustment, where there would be one (below sea level).
+    // A P/F withheld (PN401) withholds its adjustment, where there would be one (below 740 mmHg).
     const withheld = pf ? null : c.withheldFrom('pf_ratio');
-    if (withheld) return !pb ? c.missing() : pb.value >= SEA_LEVEL_MMHG - 20 ? NEAR_SEA_LEVEL : withheld;
+    if (withheld) return !pb ? c.missing() : pb.value >= PF_ADJUSTED_BELOW_MMHG ? NEAR_SEA_LEVEL : withheld;
     if (!pf || !pb) return c.missing([pf, c.lacking('pf_ratio')]);
     if (pb.value >= PF_ADJUSTED_BELOW_MMHG) return NEAR_SEA_LEVEL;
     return c.value(pfRatioAltitudeAdjusted(pf.value, pb.value), [pf, pb]);
