@@ -77,7 +77,13 @@ describe('documentSymbols', () => {
 
 describe('foldingRanges', () => {
   it('folds each timepoint of more than one line, without trailing blank lines', () => {
-    expect(foldingRanges(checkNote(text))).toEqual([{ startLine: 4, endLine: 6 }, { startLine: 9, endLine: 11 }]);
+    expect(foldingRanges(checkNote(text))).toEqual([{ startLine: 1, endLine: 2 }, { startLine: 4, endLine: 6 }, { startLine: 9, endLine: 11 }]);
+  });
+
+  it('folds the header from its first line to its last header line, when that is more than one line', () => {
+    const header = note('patient   age 58 y', '# recorded at the hut', 'place     altitude 1650 m', '# end of header', '', '@ 08:00', 'vitals hr 80');
+    expect(foldingRanges(checkNote(header))[0]).toEqual({ startLine: 0, endLine: 2 });
+    expect(foldingRanges(checkNote(note('patient age 58 y', '@ 08:00', 'vitals hr 80')))).toEqual([{ startLine: 1, endLine: 2 }]);
   });
 
   it('folds an implicit first timepoint from its first value line', () => {

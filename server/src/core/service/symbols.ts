@@ -58,27 +58,37 @@ function timeDetail(result: NoteResult, tp: Timepoint): string {
   return written ?? computed ?? 'time unknown';
 }
 
+/**
+ * The header: the header-section lines (patient, place, units) before the first timepoint's first
+ * line of values, from the first line written to the last; and where the values of an implicit first
+ * timepoint (values before any `@`) start.
+ */
+function headerOf(result: NoteResult): { implicitStart: number | null; header: { start: number; end: number; lines: SectionLine[] } | null } {
+  const lines = result.analysis.tree.lines;
+  const timepoints = result.analysis.timeline.timepoints;
+  const firstTpLine = timepoints.find((t) => t.line !== null)?.line ?? lines.length;
+  const implicitStart = timepoints[0]?.line === null ? firstValueLine(lines, firstTpLine) : null;
+  const headerEnd = (implicitStart ?? firstTpLine) - 1;
+  const headerLines = lines.filter((l): l is SectionLine => l.line <= headerEnd && l.kind === 'section' && sectionById(l.section).kind === 'header');
+  const firstHeader = lines.find((l) => l.line <= headerEnd && isContent(l));
+  if (headerLines.length === 0 || !firstHeader) return { implicitStart, header: null };
+  return { implicitStart, header: { start: firstHeader.line, end: lastFilledLine(lines, firstHeader.line, headerEnd), lines: headerLines } };
+}
+
 export function documentSymbols(result: NoteResult): SymbolInfo[] {
   const lines = result.analysis.tree.lines;
   const timepoints = result.analysis.timeline.timepoints;
   const symbols: SymbolInfo[] = [];
 
-  // Header: header-section lines before the first timepoint's first line of values.
-  const firstTpLine = timepoints.find((t) => t.line !== null)?.line ?? lines.length;
-  const implicit = timepoints[0]?.line === null ? timepoints[0] : undefined;
-  const implicitStart = implicit ? firstValueLine(lines, firstTpLine) : null;
-  const headerEnd = (implicitStart ?? firstTpLine) - 1;
-  const headerLines = lines.filter((l): l is SectionLine => l.line <= headerEnd && l.kind === 'section' && sectionById(l.section).kind === 'header');
-  const firstHeader = lines.find((l) => l.line <= headerEnd && isContent(l));
-  if (headerLines.length > 0 && firstHeader) {
-    const end = lastFilledLine(lines, firstHeader.line, headerEnd);
+  const { implicitStart, header } = headerOf(result);
+  if (header) {
     symbols.push({
       name: 'header',
-      detail: [...new Set(headerLines.map((l) => l.section))].join(', '),
+      detail: [...new Set(header.lines.map((l) => l.section))].join(', '),
       kind: 'header',
-      range: wholeLines(lines, firstHeader.line, end),
-      selectionRange: wholeLines(lines, firstHeader.line, firstHeader.line),
-      children: headerLines.map(sectionSymbol),
+      range: wholeLines(lines, header.start, header.end),
+      selectionRange: wholeLines(lines, header.start, header.start),
+      children: header.lines.map(sectionSymbol),
     });
   }
 
@@ -123,6 +133,11 @@ const REGION_END = /^#\s*endregion\b/;
 export function foldingRanges(result: NoteResult): FoldingInfo[] {
   const lines = result.analysis.tree.lines;
   const out: FoldingInfo[] = [];
+  // The header folds as a timepoint does, from its first line to its last header line, when that
+  // takes more than one line.
+  const { header } = headerOf(result);
+  const headerEnd = header?.lines[header.lines.length - 1]?.line ?? -1;
+  if (header && headerEnd > header.start) out.push({ startLine: header.start, endLine: headerEnd });
   const firstTpLine = result.analysis.timeline.timepoints.find((t) => t.line !== null)?.line ?? lines.length;
   for (const tp of result.analysis.timeline.timepoints) {
     const start = tp.line ?? firstValueLine(lines, firstTpLine) ?? tp.startLine;
@@ -131,7 +146,9 @@ export function foldingRanges(result: NoteResult): FoldingInfo[] {
   }
   const regions = regionRanges(lines);
   if (regions.length === 0) return out;
-  return [...out, ...regions].sort((a, b) => a.startLine - b.startLine || b.endLine - a.endLine);
+  // A region marked around exactly the header (or a timepoint) folds once, as the region.
+  const plain = out.filter((r) => !regions.some((g) => g.startLine === r.startLine && g.endLine === r.endLine));
+  return [...plain, ...regions].sort((a, b) => a.startLine - b.startLine || b.endLine - a.endLine);
 }
 
 /**
