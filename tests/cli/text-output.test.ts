@@ -407,7 +407,7 @@ describe('show\'s legend', () => {
     const real = result.analysis.derivation(0)!;
     const pf = real.derived.find((v) => v.id === 'pf_ratio')!;
     const legend = new Legend();
-    const lines = renderDerived(tp, { ...real, derived: [{ ...pf, estimate: true }], missing: [], interpretations: [] }, paint(false), legend);
+    const lines = renderDerived(tp, { ...real, derived: [{ ...pf, estimate: true }], missing: [], notApplicable: [], interpretations: [] }, paint(false), legend);
     expect(lines[0]).toBe('  derived  P/F 429 mmHg est.');
     expect(legend.lines(paint(false))).toContain('  est.  a derived value that is an estimate by a rough rule');
   });
@@ -416,7 +416,7 @@ describe('show\'s legend', () => {
     const out = io();
     await run(['show', '--help'], out);
     const help = out.out();
-    for (const row of ['header', 'SECTION', 'carried', 'derived', 'missing', 'reading']) expect(help, row).toMatch(new RegExp(`\\b${row}\\b`));
+    for (const row of ['header', 'SECTION', 'carried', 'derived', 'withheld', 'missing', 'reading']) expect(help, row).toMatch(new RegExp(`\\b${row}\\b`));
     expect(help.replace(/\s+/g, ' ')).toContain('A legend at the end explains every short name and mark used above');
   });
 

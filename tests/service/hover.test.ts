@@ -4,6 +4,7 @@ import { describe, expect, it } from 'vitest';
 import { allDerivations } from '../../server/src/core/analysis/analyse';
 import { checkNote } from '../../server/src/core/check-note';
 import { CAUTION, derivedHover, hoverAt } from '../../server/src/core/service';
+import { derivedBody } from '../../server/src/core/service/derived-hover';
 import { note, noteAt } from './cursor';
 import { SECTIONS } from '../../server/src/core/fields/sections';
 import { FIELDS } from '../../server/src/core/fields/registry';
@@ -260,5 +261,24 @@ describe('hover on a value written in a unit other than the canonical one', () =
     // A value written in the canonical unit keeps the other unit system (there is none for cm).
     expect(markdown('patient height 18|0 cm')).toMatch(/Value: \*\*180 cm\*\*\n/);
     expect(markdown('vitals temp 101.|1 F')).toContain('Value: **38.4 C** = 101.1 F');
+  });
+});
+
+describe('inputs written in another unit than the formula takes', () => {
+  // 5,000 ft × 0.3048 = 1,524 m (NIST SP 811, 2008, exact factor); 40 % is the fraction 0.40.
+  const result = checkNote('place altitude 5000 ft\n@ 08:00\noxygen venturi fio2 40 %\nabg 7.40/40/70/24');
+  const tp = result.analysis.timeline.timepoints[0]!;
+  const body = (id: string) => derivedBody(result.analysis.derivation(0).derived.find((d) => d.id === id)!, { timepoint: tp });
+
+  it('names the number and unit the note wrote beside the one used', () => {
+    expect(body('barometric')).toContain('altitude 1524 m (written 5000 ft)');
+  });
+
+  it('leaves a percentage used as a fraction as it is (FiO2 40 % is 0.40 at a glance)', () => {
+    expect(body('pf_ratio')).toMatch(/FiO2 0\.40? — /);
+  });
+
+  it('says nothing more for an input written in the unit the formula takes', () => {
+    expect(body('pf_ratio')).not.toMatch(/PaO2 70 mmHg \(written/);
   });
 });

@@ -10,6 +10,7 @@
  * is computed, and says so, with the conversion of each input the note wrote in kPa.
  */
 import type { InputValue, Timepoint } from '../analysis/model';
+import { displayUnit } from '../analysis/read-value';
 import { describeInputOrigin, substitute } from '../derive/context';
 import type { DerivedValue, Term } from '../derive/model';
 import { derivedDef } from '../derive/registry';
@@ -72,7 +73,19 @@ export function termText(t: Term, tp: Timepoint | null = null): string {
   const note = t.note ? ` (${t.note})` : '';
   if (tp && showsKpa(tp) && isGasTerm(t)) return `${t.name} ${termKpa(t, tp)} kPa (${formatNumber(t.value, t.decimals)} mmHg)${note}`;
   const unit = t.unit ? ` ${t.unit}` : '';
-  return `${t.name} ${formatNumber(t.value, t.decimals)}${unit}${note}`;
+  return `${t.name} ${formatNumber(t.value, t.decimals)}${unit}${tp ? writtenInOtherUnit(t, tp) : ''}${note}`;
+}
+
+/**
+ * ` (written 5000 ft)`: an input the note wrote in another unit than the one the formula takes (feet
+ * for an altitude in metres, pounds for a weight in kg), as written; '' otherwise. A percentage for
+ * a fraction (`fio2 40 %` used as 0.40) reads at a glance and is left as it is.
+ */
+function writtenInOtherUnit(t: Term, tp: Timepoint): string {
+  const s = statedOfTerm(t, tp)?.stated;
+  if (!s || s.readUnit === null || s.unit === null || s.readUnit === s.unit || s.readUnit === '%' || s.unitDoubt !== null) return '';
+  const number = s.item.value?.text;
+  return number ? ` (written ${number} ${displayUnit(s.readUnit)})` : '';
 }
 
 /**
