@@ -69,3 +69,18 @@ describe('a tidal volume below its usual minimum', () => {
     expect(findings('patient weight 3 kg\n@ 08:00\nvent vt 20 mL', 'PN302').map((f) => f.range.start.line)).toEqual([0]);
   });
 });
+
+describe('high-frequency oscillation', () => {
+  // HFOV moves 1–3 mL/kg a breath (common practice, no source): 150 mL for 82 kg is 1.8 mL/kg,
+  // below the 164 mL usual minimum of conventional breaths, and usual in HFOV.
+  const note = (mode: string) => `patient weight 82 kg\n@ 08:00\nvent mode ${mode}, vt 150 mL`;
+
+  it('keeps a tidal volume of 1–3 mL/kg quiet in HFOV, and reports it in volume control', () => {
+    expect(findings(note('HFOV'), 'PN302')).toEqual([]);
+    expect(findings(note('VC'), 'PN302')).toHaveLength(1);
+  });
+
+  it('still reports a tidal volume above the usual maximum in HFOV', () => {
+    expect(findings('@ 08:00\nvent mode HFOV, vt 2500 mL', 'PN302')).toHaveLength(1);
+  });
+});

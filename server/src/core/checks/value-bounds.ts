@@ -41,7 +41,13 @@ function valueCheck(test: (ctx: CheckContext, stated: StatedValue, barometricMmh
  * and for a tidal volume at a timepoint, at the patient's body size there (see `softBoundsAt`).
  */
 function usualBounds(field: FieldDef, barometricMmhg: number | null, at: TimepointContext | null): Bounds | undefined {
-  return softBoundsAt(field, barometricMmhg, field.id === 'vt' && at !== null ? bodySizeKg(at) : null);
+  const bounds = softBoundsAt(field, barometricMmhg, field.id === 'vt' && at !== null ? bodySizeKg(at) : null);
+  // High-frequency oscillation moves 1–3 mL/kg a breath, below any usual minimum of conventional
+  // breaths (common practice, no source): there a tidal volume keeps only its usual maximum.
+  if (field.id === 'vt' && at !== null && bounds?.min !== undefined && at.timepoint.values.get('mode')?.stated.word === 'HFOV') {
+    return bounds.max === undefined ? {} : { max: bounds.max };
+  }
+  return bounds;
 }
 
 /**
@@ -171,7 +177,7 @@ export const unusualValue = defineCheck({
   severity: 'warning',
   tags: ['plausibility'],
   doc: {
-    fires: 'A value is possible but outside the usual (soft) bounds of its field: worth a second look at the unit or the transcription. Low arterial gas pressures are not flagged where the barometric pressure is below 500 mmHg, since they are real at extreme altitude. A tidal volume is usual from 2 mL per kg of body size (the smaller of the weight and the predicted body weight in force), or from 50 mL where the note gives neither. A saturation written as a fraction with no unit (`spo2 0.94`) is reported with the percentage offered, and is not used until it is rewritten.',
+    fires: 'A value is possible but outside the usual (soft) bounds of its field: worth a second look at the unit or the transcription. Low arterial gas pressures are not flagged where the barometric pressure is below 500 mmHg, since they are real at extreme altitude. A tidal volume is usual from 2 mL per kg of body size (the smaller of the weight and the predicted body weight in force), or from 50 mL where the note gives neither; in HFOV, which moves 1–3 mL/kg a breath, it has no usual minimum. A saturation written as a fraction with no unit (`spo2 0.94`) is reported with the percentage offered, and is not used until it is rewritten.',
     example: 'vitals hr 236',
     fix: 'Confirm the value; if it is right, the warning can stay (or the check can be switched off in settings).',
   },
