@@ -61,7 +61,7 @@ describe('a tidal volume below its usual minimum', () => {
   });
 
   it('`vt 0.45 mL` and `vt 40 mL` are unusual (PN302), as is 100 mL for an 82 kg patient; 400 mL is not', () => {
-    expect(findings('@ 08:00\nvent vt 0.45 mL', 'PN302')[0]?.message).toBe('Tidal volume 0.45 mL is unusual (usually 50 mL to 1200 mL): check the unit and the transcription.');
+    expect(findings('@ 08:00\nvent vt 0.45 mL', 'PN302')[0]?.message).toBe('Tidal volume 0.45 mL is unusual (usually 50 mL to 1200 mL): check the unit and the transcription. In L it would be usual.');
     expect(findings('@ 08:00\nvent vt 40 mL', 'PN302')).toHaveLength(1);
     expect(findings('patient weight 82 kg\n@ 08:00\nvent vt 100 mL', 'PN302')[0]?.message).toBe('Tidal volume 100 mL is unusual (usually 164 mL to 1200 mL): check the unit and the transcription.');
     expect(findings('patient weight 82 kg\n@ 08:00\nvent vt 400 mL', 'PN302')).toEqual([]);
@@ -82,5 +82,18 @@ describe('high-frequency oscillation', () => {
 
   it('still reports a tidal volume above the usual maximum in HFOV', () => {
     expect(findings('@ 08:00\nvent mode HFOV, vt 2500 mL', 'PN302')).toHaveLength(1);
+  });
+});
+
+describe('PN302 offers the unit in which an unusual value is usual', () => {
+  it('`vt 0.45 mL` is offered L (0.45 L = 450 mL), not as the preferred fix, and the fixed note is clean', () => {
+    const text = '@ 08:00\nvent mode VC, vt 0.45 mL, rate 16';
+    const [f] = findings(text, 'PN302');
+    expect(f?.fixes.map((x) => [x.title, x.preferred ?? false])).toEqual([['Write L instead of mL', false]]);
+    expect(checkNote(applyEdits(text, f!.fixes[0]!.edits)).findings).toEqual([]);
+  });
+
+  it('offers nothing where no other unit makes the number usual (`vt 40 mL` is 0.04 mL or 40 L)', () => {
+    expect(findings('@ 08:00\nvent vt 40 mL', 'PN302')[0]?.fixes).toEqual([]);
   });
 });

@@ -179,7 +179,7 @@ export const unusualValue = defineCheck({
   doc: {
     fires: 'A value is possible but outside the usual (soft) bounds of its field: worth a second look at the unit or the transcription. Low arterial gas pressures are not flagged where the barometric pressure is below 500 mmHg, since they are real at extreme altitude. A tidal volume is usual from 2 mL per kg of body size (the smaller of the weight and the predicted body weight in force), or from 50 mL where the note gives neither; in HFOV, which moves 1–3 mL/kg a breath, it has no usual minimum. A saturation written as a fraction with no unit (`spo2 0.94`) is reported with the percentage offered, and is not used until it is rewritten.',
     example: 'vitals hr 236',
-    fix: 'Confirm the value; if it is right, the warning can stay (or the check can be switched off in settings).',
+    fix: 'Confirm the value; if it is right, the warning can stay (or the check can be switched off in settings). Where the number is usual in the field\'s other unit (`vt 0.45 mL`, meant as L), a quick fix writes that unit.',
   },
   source: 'field registry bounds; each field names its source (mostly common practice, no source)',
   ...valueCheck((ctx, stated, barometricMmhg, at) => {
@@ -202,10 +202,14 @@ export const unusualValue = defineCheck({
     if (field.hard && outOfBounds(stated, field.hard)) return;
     const soft = usualBounds(field, barometricMmhg, at);
     if (!outOfBounds(stated, soft)) return;
+    // A unit written in which the number is usual (`vt 0.45 mL`, meant as L) is offered, not preferred:
+    // the value is possible as written.
+    const other = otherUnitFix(field, stated, soft);
     ctx.report({
       range: toRange(stated.line, stated.item.value?.span ?? stated.item.span),
       // pH has no unit to check.
-      message: `${asWritten(field, stated)} is unusual (usually ${describe(soft ?? {}, field, stated)}): check ${unitSuffix(field, stated) ? 'the unit and ' : ''}the transcription.`,
+      message: `${asWritten(field, stated)} is unusual (usually ${describe(soft ?? {}, field, stated)}): check ${unitSuffix(field, stated) ? 'the unit and ' : ''}the transcription.${other ? ` In ${other.unit} it would be usual.` : ''}`,
+      ...(other ? { fixes: [other.fix] } : {}),
     });
   }),
 });
