@@ -1,7 +1,7 @@
 /** Derived values, missing inputs and interpretations under a timepoint. */
 import type { Timepoint } from '../core/analysis/model';
-import { withheldText, type TimepointDerivation } from '../core/derive/model';
-import { derivedDef } from '../core/derive/registry';
+import type { TimepointDerivation } from '../core/derive/model';
+import { withheldByReason } from '../core/derive/registry';
 import { showsKpa } from '../core/present';
 import { wordList } from '../core/util/format';
 import { kpaText, numberText } from '../core/service/derived-hover';
@@ -35,16 +35,8 @@ export function renderDerived(tp: Timepoint, d: TimepointDerivation | undefined,
   }
   for (const m of d.missing) legend.value(m.id, kpa);
   // Values a finding withholds, named where they would have been, one line per reason.
-  const withheld = new Map<string, string[]>();
-  for (const n of d.notApplicable) {
-    if (n.withheldBy === null) continue;
-    const why = withheldText(n);
-    const name = derivedDef(n.id)?.short ?? n.label;
-    legend.value(n.id, kpa);
-    const list = withheld.get(why);
-    if (list) list.push(name);
-    else withheld.set(why, [name]);
-  }
+  for (const n of d.notApplicable) if (n.withheldBy !== null) legend.value(n.id, kpa);
+  const withheld = withheldByReason(d.notApplicable);
   for (const [why, names] of withheld) lines.push(`  ${p.yellow('withheld'.padEnd(8))} ${names.join(p.dim(' · '))}: ${why}`);
   for (const [needs, what] of groupMissing(d)) lines.push(`  ${p.dim('missing'.padEnd(8))} ${p.dim(`add ${needs} to get ${what.join(', ')}`)}`);
   for (const i of d.interpretations) lines.push(`  ${p.cyan('reading'.padEnd(8))} ${i.text}`);

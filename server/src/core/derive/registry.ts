@@ -11,7 +11,7 @@ import { DeriveContext, type DerivedDefinition, type DerivedTable } from './cont
 import * as gas from './gas-exchange';
 import { interpret } from './interpret';
 import * as mech from './mechanics';
-import type { DerivedValue, Interpretation, MissingValue, NotApplicable, TimepointDerivation } from './model';
+import { withheldText, type DerivedValue, type Interpretation, type MissingValue, type NotApplicable, type TimepointDerivation } from './model';
 import * as transport from './oxygen-transport';
 import { NONE } from '../util/lists';
 
@@ -95,6 +95,24 @@ const ANCHORED: ReadonlyMap<string, SlotMask> = (() => {
 
 export function derivedDef(id: string): DerivedDefinition | undefined {
   return byId.get(id);
+}
+
+/**
+ * The values a finding withholds (those of `list` with a `withheldBy`), grouped by why
+ * (`withheldText`), each named by its short name, in the order met: one line or paragraph per
+ * reason where `show` and the hovers name them.
+ */
+export function withheldByReason(list: readonly NotApplicable[]): Map<string, string[]> {
+  const groups = new Map<string, string[]>();
+  for (const n of list) {
+    if (n.withheldBy === null) continue;
+    const why = withheldText(n);
+    const name = derivedDef(n.id)?.short ?? n.label;
+    const names = groups.get(why);
+    if (names) names.push(name);
+    else groups.set(why, [name]);
+  }
+  return groups;
 }
 
 /**

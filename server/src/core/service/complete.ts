@@ -17,7 +17,7 @@
  */
 import type { NoteResult } from '../check-note';
 import { displayUnit } from '../analysis/read-value';
-import { fieldFor, fieldsInSection, type FieldDef } from '../fields/registry';
+import { canonicalWord, fieldFor, fieldsInSection, type FieldDef } from '../fields/registry';
 import { SECTIONS, sectionByName, type SectionDef, type SectionId } from '../fields/sections';
 import { squeezeBlanks } from '../syntax/blanks';
 import { chunkLine, isBlank, leadingNumber } from '../syntax/lexer';
@@ -274,8 +274,8 @@ function notForDevice(device: string | null): readonly string[] {
 
 /** The canonical device word of an oxygen line (`ra` → room air), null when none is written yet. */
 function deviceOnLine(items: readonly ItemNode[]): string | null {
-  const words = fieldFor('oxygen', 'device')?.words;
-  for (const i of items) if (i.keyName === 'device' && i.value?.kind === 'word') return words?.[i.value.text.toLowerCase()] ?? null;
+  const field = fieldFor('oxygen', 'device');
+  for (const i of items) if (i.keyName === 'device' && i.value?.kind === 'word') return field ? canonicalWord(field, i.value.text) : null;
   return null;
 }
 

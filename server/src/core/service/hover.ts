@@ -10,7 +10,7 @@ import type { NoteResult } from '../check-note';
 import type { StatedValue, Timepoint } from '../analysis/model';
 import { displayUnit } from '../analysis/read-value';
 import { withheldText, type DerivedValue, type NotApplicable, type TimepointDerivation } from '../derive/model';
-import { derivedDef } from '../derive/registry';
+import { derivedDef, withheldByReason } from '../derive/registry';
 import { shortAsName } from '../derive/context';
 import { fieldFor, fieldsInSection, loincFor, type FieldDef } from '../fields/registry';
 import { sectionById, type SectionId } from '../fields/sections';
@@ -279,15 +279,7 @@ function timeParagraph(node: TimepointLine, tp: Timepoint | null, written: strin
 
 /** `Withheld here: P/F, a/A — the PaO2 is above … (see PN401).`, one paragraph per reason. */
 function withheldParagraphs(withheld: readonly NotApplicable[]): string[] {
-  const groups = new Map<string, string[]>();
-  for (const n of withheld) {
-    const why = withheldText(n);
-    const name = derivedDef(n.id)?.short ?? n.label;
-    const list = groups.get(why);
-    if (list) list.push(name);
-    else groups.set(why, [name]);
-  }
-  return [...groups].map(([why, names]) => `Withheld here: ${escapeMarkdown(names.join(', '))} — ${escapeMarkdown(why)}.`);
+  return [...withheldByReason(withheld)].map(([why, names]) => `Withheld here: ${escapeMarkdown(names.join(', '))} — ${escapeMarkdown(why)}.`);
 }
 
 function derivedLine(d: DerivedValue, tp: Timepoint): string {
