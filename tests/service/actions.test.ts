@@ -255,6 +255,19 @@ describe('convertNoteUnits', () => {
     expect(convertNoteUnits(checkNote(text), 'mmHg').filter((e) => e.range.start.line === 1)).toEqual([]);
   });
 
+  it('writes the new unit after such a shorthand above the note\'s units line, where bare numbers keep the old unit', () => {
+    // Found by the property test below (`vbg 0/15/7.35` before `units gas mmhg`). PaCO2 40 mmHg is
+    // ordinary (5.3 kPa; 1 kPa = 7.50062 mmHg, definition of the units); PaO2 9.1 is implausible in
+    // mmHg and ordinary in kPa. The units line now says kPa but comes after the gas, which is still
+    // read in mmHg, so kPa is written after it: both pressures then read in kPa as meant.
+    const text = note('@ 08:00', 'abg 7.35/40/9.1/24', 'units gas mmHg');
+    const converted = applyEdits(text, convertNoteUnits(checkNote(text), 'kPa'));
+    expect(converted).toBe(note('@ 08:00', 'abg 7.35/5.3/9.1/24 kPa', 'units gas kPa'));
+    expect(stated(checkNote(converted)).filter((s) => s.fieldId === 'pao2' || s.fieldId === 'paco2').map((s) => [s.fieldId, s.readUnit, s.unitDoubt])).toEqual([['paco2', 'kPa', null], ['pao2', 'kPa', null]]);
+    // Converting again changes nothing.
+    expect(convertNoteUnits(checkNote(converted), 'kPa')).toEqual([]);
+  });
+
   it('keeps an unusual value as read, with its unit written', () => {
     const text = note('@ 08:00', 'abg po2 800');
     expect(applyEdits(text, convertNoteUnits(checkNote(text), 'kPa'))).toBe(note('units     gas kPa', '@ 08:00', 'abg po2 800 mmHg'));

@@ -287,7 +287,8 @@ function valueEdits(s: StatedValue, field: FieldDef, to: GasUnit, bareAfter: Gas
  * in the other). A shorthand has one unit for its two pressures, so none is written: every pressure
  * is left bare and read in the note's new gas unit. A pressure in doubt is left as written (in the
  * new unit it is ordinary: `7.35/40/9.1/24` in mmHg has a PaO2 of 9.1 kPa), the others are converted
- * (`7.35/5.3/9.1/24` in kPa). Left as it is when converting to the unit in force; when another
+ * (`7.35/5.3/9.1/24` in kPa); above the `units gas` line, where bare numbers keep the old unit, the
+new unit is written after it (`7.35/5.3/9.1/24 kPa`). Left as it is when converting to the unit in force; when another
  * pressure is unusual too, the numbers are kept as read with their unit written, as for any
  * shorthand with an unusual pressure.
  */
@@ -295,7 +296,7 @@ function shorthandWithDoubt(sh: ShorthandPressures, to: GasUnit, bareAfter: GasU
   if (sh.parts.every((p) => p.unitDoubt)) return [];
   // Another pressure unusual too: the numbers are kept as read, with the unit they were read in written.
   if (sh.parts.some((p) => !p.unitDoubt && !ordinary(p, p.field))) return keepAsRead(sh.node.line, sh.end, false, readUnit, bareAfter);
-  if (readUnit === to || bareAfter !== to) return [];
+  if (readUnit === to) return [];
   const edits: TextEdit[] = [];
   for (const s of sh.parts) {
     if (s.unitDoubt) continue;
@@ -303,6 +304,9 @@ function shorthandWithDoubt(sh: ShorthandPressures, to: GasUnit, bareAfter: GasU
     if (number === null || !s.item.value) return [];
     edits.push({ range: lineRange(sh.node.line, s.item.value.span.start, s.item.value.span.end), newText: number });
   }
+  // Above the note's `units gas` line a bare number is still read in the old unit: the new one,
+  // in which the pressure in doubt is ordinary, is written after the gas.
+  if (bareAfter !== to) edits.push({ range: lineRange(sh.node.line, sh.end, sh.end), newText: ` ${to}` });
   return edits;
 }
 
