@@ -198,3 +198,36 @@ describe('check --format sarif from the built CLI', () => {
     expect(fromStdin.runs[0]!.results[0]!.locations[0]!.physicalLocation.artifactLocation).toEqual({ description: { text: 'standard input' }, index: 0 });
   });
 });
+
+describe('FHIR bundles of notes read from standard input', () => {
+  const exportStdin = (input: string): { id: string; entry: { fullUrl: string }[] } => {
+    const r = spawnSync(process.execPath, [CLI, 'export', '-', '--format', 'fhir'], { cwd: tmpdir(), input, encoding: 'utf8' });
+    expect(r.status).toBe(0);
+    const bundles = JSON.parse(r.stdout) as { id: string; entry: { fullUrl: string }[] }[];
+    expect(bundles).toHaveLength(1);
+    return bundles[0]!;
+  };
+  const one = '@ day 1 08:00\nvitals hr 90\n';
+  const other = '@ day 1 08:00\nvitals hr 91\n';
+
+  it('different notes get different bundle ids and fullUrls, so loading both keeps both', () => {
+    const a = exportStdin(one);
+    const b = exportStdin(other);
+    expect(a.id).not.toBe(b.id);
+    expect(a.entry[0]!.fullUrl).not.toBe(b.entry[0]!.fullUrl);
+  });
+
+  it('the same note gets the same ids on every run, whatever its line ends', () => {
+    const a = exportStdin(one);
+    expect(exportStdin(one)).toEqual(a);
+    expect(exportStdin(one.replace(/\n/g, '\r\n')).id).toBe(a.id);
+  });
+
+  it('a file keeps ids named by its path (a re-export of an edited note updates the same resources)', () => {
+    const dir = folder({ 'n.pneu': one });
+    const first = JSON.parse(cli(dir, ['export', 'n.pneu', '--format', 'fhir']).stdout) as { id: string }[];
+    writeFileSync(join(dir, 'n.pneu'), other);
+    const second = JSON.parse(cli(dir, ['export', 'n.pneu', '--format', 'fhir']).stdout) as { id: string }[];
+    expect(second[0]!.id).toBe(first[0]!.id);
+  });
+});

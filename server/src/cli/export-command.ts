@@ -7,12 +7,12 @@ import { z } from 'zod';
 import type { NoteResult } from '../core/check-note';
 import { csvCells, csvHeader } from '../core/export/csv';
 import { exportColumns, timepointCells } from '../core/export/columns';
-import { anchorProblem, toFhirBundle } from '../core/export/fhir';
+import { anchorProblem, stdinNoteKey, toFhirBundle } from '../core/export/fhir';
 import { toJsonl } from '../core/export/jsonl';
 import { wordList } from '../core/util/format';
 import { EXIT, HELP, jobsOption, parse, UsageError, validate, wholeNumberOption, type Io } from './args';
 import { ConfigReport, reportConfigProblems } from './config-report';
-import { listInputs } from './inputs';
+import { listInputs, STDIN_NAME } from './inputs';
 import { Output } from './output';
 import { visible } from './visible';
 import { gather } from './pool';
@@ -53,7 +53,8 @@ export const exportRenderer: ExportRenderer = (path: string, result: NoteResult,
     return timepointCells(path, result, options).map((cells) => csvCells(cells, csv)).join('');
   }
   if (task.format === 'jsonl') return toJsonl(path, result, options);
-  return bundleText(toFhirBundle(path, result, { ...options, ...(task.anchor ? { anchor: task.anchor } : {}) }));
+  const noteKey = path === STDIN_NAME ? { noteKey: stdinNoteKey(result) } : {};
+  return bundleText(toFhirBundle(path, result, { ...options, ...noteKey, ...(task.anchor ? { anchor: task.anchor } : {}) }));
 };
 
 /** Why a note's FHIR bundle is left out of the export. */

@@ -21,6 +21,9 @@ import { globSync, isDynamicPattern, type FileSystemAdapter } from 'tinyglobby';
 import { CONFIG_FILE_NAME } from '../core/config';
 import { refuseEmptyPaths } from './args';
 
+/** How a note read from standard input (`-`) is named in output. */
+export const STDIN_NAME = '<stdin>';
+
 /** Test hook: lists a folder in place of `fs.readdirSync` (a folder root cannot be kept out of otherwise). */
 export const inputHooks: { readdirSync: ((path: string, options: { withFileTypes: true }) => unknown) | undefined } = { readdirSync: undefined };
 
@@ -491,7 +494,7 @@ function isFile(path: string): boolean {
  */
 export function readNote(path: string, cwd: string, stdin: () => Buffer, options: { readonly keepBom?: boolean } = {}): NoteInput {
   let bytes: Buffer;
-  const shown = path === '-' ? '<stdin>' : path;
+  const shown = path === '-' ? STDIN_NAME : path;
   try {
     if (path === '-') bytes = stdin();
     else {

@@ -80,6 +80,7 @@
  * `_` becomes `-`, which FHIR ids do not allow) for the value in force, and
  * `obs-<timepoint>-<field>-<section>` for the same field stated in another section there; its `fullUrl` is `urn:uuid:` with a UUID-shaped
  * id derived from the file, the timepoint and the field (stable-id.ts), the same on every run.
+ * A note read from standard input is named by its text instead of a path (`stdinNoteKey`).
  */
 import type { NoteResult } from '../check-note';
 import type { InputValue, StatedValue, Timepoint } from '../analysis/model';
@@ -99,6 +100,12 @@ export interface FhirOptions {
   readonly redactProse: boolean;
   /** Whole days added to every time (to the effective time with an anchor, to the day in the note). */
   readonly shiftDays: number;
+  /**
+   * What names the note in the ids (the Bundle's id and each entry's fullUrl); the path when not
+   * given. A note read from standard input has no path of its own: `stdinNoteKey` names it by its
+   * text, so bundles exported from different inputs do not share ids.
+   */
+  readonly noteKey?: string;
 }
 
 export interface FhirCoding {
@@ -385,17 +392,23 @@ function fieldObservation(field: FieldDef, input: InputValue, place: Place): Omi
 
 const idPart = (id: string): string => id.replace(/_/g, '-');
 
+/** The `noteKey` of a note read from standard input: derived from its text, line by line (the line ends do not count). */
+export function stdinNoteKey(result: NoteResult): string {
+  return `stdin\u0000${stableHex128(result.analysis.tree.lines.map((line) => line.text).join('\n'))}`;
+}
+
 /** One Bundle of the note's Observations. Throws a RangeError for a bad anchor or shiftDays (see `anchorProblem`). */
 export function toFhirBundle(path: string, result: NoteResult, options: FhirOptions): FhirBundle {
   assertExportOptions(options);
   const anchor = options.anchor === undefined ? null : parseAnchor(options.anchor);
   if (typeof anchor === 'string') throw new RangeError(anchor);
 
+  const noteKey = options.noteKey ?? path;
   const entries: FhirBundleEntry[] = [];
   /** fullUrl of each field Observation by the stated value it comes from (`statedKey`), for derivedFrom. */
   const fullUrls = new Map<string, string>();
   const add = (place: Place, what: string, resource: Omit<FhirObservation, 'id'>): string => {
-    const fullUrl = `urn:uuid:${stableUuid(`${path}\u0000${place.key}\u0000${what}`)}`;
+    const fullUrl = `urn:uuid:${stableUuid(`${noteKey}\u0000${place.key}\u0000${what}`)}`;
     const { resourceType, ...rest } = resource;
     entries.push({ fullUrl, resource: { resourceType, id: `obs-${place.key}-${idPart(what)}`, ...rest } });
     return fullUrl;
@@ -450,7 +463,7 @@ export function toFhirBundle(path: string, result: NoteResult, options: FhirOpti
 
   return {
     resourceType: 'Bundle',
-    id: `pneumark-${stableHex128(path).slice(0, 16)}`,
+    id: `pneumark-${stableHex128(noteKey).slice(0, 16)}`,
     type: 'collection',
     ...(entries.length ? { entry: entries } : {}),
   };
