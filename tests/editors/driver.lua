@@ -1,0 +1,60 @@
+-- Drives Neovim's own LSP client through a plan, after the README's configuration has been
+-- loaded as init.lua, and writes what Neovim saw as JSON. The plan (a JSON file named by
+-- PNEUMARK_NVIM_PLAN) lists notes to open, each with what to ask about it:
+--   { "out": path, "notes": [ { "path": ..., "waitFor": code, "hovers": [[line, character]],
+--                                "format": true } ] }
+-- Lines and characters count from 0, as in LSP. Every wait has a deadline; the outcome of each
+-- wait is in the output, so the test says what did not arrive.
+local plan = vim.json.decode(table.concat(vim.fn.readfile(os.getenv('PNEUMARK_NVIM_PLAN')), '\n'))
+local TIMEOUT = 15000
+local out = { nvim = tostring(vim.version().major) .. '.' .. vim.version().minor .. '.' .. vim.version().patch, notes = {} }
+
+local function attached(buf)
+  for _, client in pairs(vim.lsp.buf_get_clients(buf)) do
+    if client.name == 'pneumark' and client.initialized then return client end
+  end
+  return nil
+end
+
+local function has_code(buf, code)
+  for _, d in ipairs(vim.diagnostic.get(buf)) do
+    if d.code == code then return true end
+  end
+  return false
+end
+
+for _, note in ipairs(plan.notes) do
+  vim.cmd('edit ' .. vim.fn.fnameescape(note.path))
+  local buf = vim.api.nvim_get_current_buf()
+  local seen = { path = note.path, filetype = vim.bo[buf].filetype }
+  seen.attached = vim.wait(TIMEOUT, function() return attached(buf) ~= nil end, 20)
+  local client = attached(buf)
+  if client then
+    seen.client = { root = client.config.root_dir or vim.NIL, id = client.id }
+  end
+  if note.waitFor then
+    seen.diagnosticsArrived = vim.wait(TIMEOUT, function() return has_code(buf, note.waitFor) end, 20)
+  end
+  seen.diagnostics = {}
+  for _, d in ipairs(vim.diagnostic.get(buf)) do
+    table.insert(seen.diagnostics, { code = d.code or vim.NIL, message = d.message, lnum = d.lnum, col = d.col, end_col = d.end_col, severity = d.severity, source = d.source or vim.NIL })
+  end
+  seen.hovers = {}
+  for _, at in ipairs(note.hovers or {}) do
+    local params = { textDocument = { uri = vim.uri_from_bufnr(buf) }, position = { line = at[1], character = at[2] } }
+    local replies = vim.lsp.buf_request_sync(buf, 'textDocument/hover', params, TIMEOUT) or {}
+    local text = vim.NIL
+    for _, reply in pairs(replies) do
+      if reply.result and reply.result.contents then text = reply.result.contents.value or vim.NIL end
+    end
+    table.insert(seen.hovers, text)
+  end
+  if note.format then
+    vim.lsp.buf.formatting_sync(nil, TIMEOUT)
+    seen.formatted = vim.api.nvim_buf_get_lines(buf, 0, -1, false)
+  end
+  table.insert(out.notes, seen)
+end
+
+vim.fn.writefile({ vim.json.encode(out) }, plan.out)
+vim.cmd('qall!')
