@@ -2,7 +2,9 @@
 -- loaded as init.lua, and writes what Neovim saw as JSON. The plan (a JSON file named by
 -- PNEUMARK_NVIM_PLAN) lists notes to open, each with what to ask about it:
 --   { "out": path, "notes": [ { "path": ..., "waitFor": code, "hovers": [[line, character]],
---                                "format": true } ] }
+--                                "format": true,
+--                                "then": { "write": { "path": ..., "text": ... }, "waitGone": code } } ] }
+-- `then` writes a file behind Neovim's back (a project file) and waits for a code to go.
 -- Lines and characters count from 0, as in LSP. Every wait has a deadline; the outcome of each
 -- wait is in the output, so the test says what did not arrive.
 local plan = vim.json.decode(table.concat(vim.fn.readfile(os.getenv('PNEUMARK_NVIM_PLAN')), '\n'))
@@ -52,6 +54,13 @@ for _, note in ipairs(plan.notes) do
   if note.format then
     vim.lsp.buf.formatting_sync(nil, TIMEOUT)
     seen.formatted = vim.api.nvim_buf_get_lines(buf, 0, -1, false)
+  end
+  if note['then'] then
+    local step = note['then']
+    vim.fn.writefile(vim.split(step.write.text, '\n', true), step.write.path, 'b')
+    seen.gone = vim.wait(TIMEOUT, function() return not has_code(buf, step.waitGone) end, 20)
+    seen.after = {}
+    for _, d in ipairs(vim.diagnostic.get(buf)) do table.insert(seen.after, d.code or vim.NIL) end
   end
   table.insert(out.notes, seen)
 end

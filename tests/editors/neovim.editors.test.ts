@@ -52,7 +52,10 @@ describe('in headless Neovim', () => {
     const loosePath = note('messy.pneu', MESSY);
     run = runNeovim([
       { path: BROKEN, waitFor: 'PN101' },
-      { path: projectPath, waitFor: 'PN101', hovers: [at(GAS, 'po2 8.0'), at(GAS, '8.0')] },
+      {
+        path: projectPath, waitFor: 'PN101', hovers: [at(GAS, 'po2 8.0'), at(GAS, '8.0')],
+        then: { write: { path: join(projectPath, '..', '..', 'pneumark.config.json'), text: '{ "gasUnit": "kPa", "disabledChecks": ["PN410"] }\n' }, waitGone: 'PN410' },
+      },
       { path: loosePath, format: true },
     ]);
     [broken, projectNote, loose] = run.notes as [SeenNote, SeenNote, SeenNote];
@@ -86,6 +89,13 @@ describe('in headless Neovim', () => {
     expect(onValue).toContain('**PaO2**');
     expect(onValue).toContain('Value: **8.0 kPa** = 60 mmHg');
     expect(onKey).toContain('**PaO2**');
+  });
+
+  it('applies a change of that project file at once, though Neovim 0.7 reports no file changes', () => {
+    expect(projectNote.diagnostics.map((d) => d.code)).toContain('PN410');
+    expect(projectNote.gone).toBe(true);
+    expect(projectNote.after).toContain('PN101');
+    expect(projectNote.after).not.toContain('PN410');
   });
 
   it('formats a note with the formatter\'s edits applied by Neovim', () => {

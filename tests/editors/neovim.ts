@@ -44,6 +44,8 @@ export interface NotePlan {
   readonly hovers?: readonly (readonly [number, number])[];
   /** Format the note with vim.lsp.buf.formatting_sync. */
   readonly format?: boolean;
+  /** Then write a file behind Neovim's back and wait until no diagnostic has the code `waitGone`. */
+  readonly then?: { readonly write: { readonly path: string; readonly text: string }; readonly waitGone: string };
 }
 
 export interface SeenDiagnostic {
@@ -65,6 +67,9 @@ export interface SeenNote {
   readonly diagnostics: readonly SeenDiagnostic[];
   readonly hovers: readonly (string | null)[];
   readonly formatted?: readonly string[];
+  /** After `then`: whether the code went, and the codes then. */
+  readonly gone?: boolean;
+  readonly after?: readonly (string | null)[];
 }
 
 export interface NeovimRun {
