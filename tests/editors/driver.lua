@@ -3,9 +3,13 @@
 -- PNEUMARK_NVIM_PLAN) lists notes to open, each with what to ask about it:
 --   { "out": path, "notes": [ { "path": ..., "waitFor": code, "hovers": [[line, character]],
 --                                "format": true,
---                                "then": { "write": { "path": ..., "text": ... }, "waitGone": code } } ] }
--- `then` writes a file behind Neovim's back (a project file) and waits for a code to go.
--- Lines and characters count from 0, as in LSP. Every wait has a deadline; the outcome of each
+--                                "then": { "write": { "path": ..., "text": ... },
+--                                          "edit": { "line": n, "find": ..., "text": ... },
+--                                          "waitGone": code, "waitFor": code } } ] }
+-- Lines and characters count from 0, as in LSP. `then` writes a file behind Neovim's back (a
+-- project file) or edits the buffer as typing would (the first `find` on the line becomes
+-- `text`; Neovim sends the change as an incremental edit), then waits until no diagnostic has
+-- the code `waitGone` and one has `waitFor`. Every wait has a deadline; the outcome of each
 -- wait is in the output, so the test says what did not arrive.
 local plan = vim.json.decode(table.concat(vim.fn.readfile(os.getenv('PNEUMARK_NVIM_PLAN')), '\n'))
 local TIMEOUT = 15000
@@ -25,6 +29,14 @@ local function has_code(buf, code)
   return false
 end
 
+local function diagnostics(buf)
+  local seen = {}
+  for _, d in ipairs(vim.diagnostic.get(buf)) do
+    table.insert(seen, { code = d.code or vim.NIL, message = d.message, lnum = d.lnum, col = d.col, end_col = d.end_col, severity = d.severity, source = d.source or vim.NIL })
+  end
+  return seen
+end
+
 for _, note in ipairs(plan.notes) do
   vim.cmd('edit ' .. vim.fn.fnameescape(note.path))
   local buf = vim.api.nvim_get_current_buf()
@@ -37,10 +49,7 @@ for _, note in ipairs(plan.notes) do
   if note.waitFor then
     seen.diagnosticsArrived = vim.wait(TIMEOUT, function() return has_code(buf, note.waitFor) end, 20)
   end
-  seen.diagnostics = {}
-  for _, d in ipairs(vim.diagnostic.get(buf)) do
-    table.insert(seen.diagnostics, { code = d.code or vim.NIL, message = d.message, lnum = d.lnum, col = d.col, end_col = d.end_col, severity = d.severity, source = d.source or vim.NIL })
-  end
+  seen.diagnostics = diagnostics(buf)
   seen.hovers = {}
   for _, at in ipairs(note.hovers or {}) do
     local params = { textDocument = { uri = vim.uri_from_bufnr(buf) }, position = { line = at[1], character = at[2] } }
@@ -57,10 +66,18 @@ for _, note in ipairs(plan.notes) do
   end
   if note['then'] then
     local step = note['then']
-    vim.fn.writefile(vim.split(step.write.text, '\n', true), step.write.path, 'b')
-    seen.gone = vim.wait(TIMEOUT, function() return not has_code(buf, step.waitGone) end, 20)
-    seen.after = {}
-    for _, d in ipairs(vim.diagnostic.get(buf)) do table.insert(seen.after, d.code or vim.NIL) end
+    if step.write then
+      vim.fn.writefile(vim.split(step.write.text, '\n', true), step.write.path, 'b')
+    end
+    if step.edit then
+      local line = vim.api.nvim_buf_get_lines(buf, step.edit.line, step.edit.line + 1, true)[1]
+      local from = line:find(step.edit.find, 1, true) - 1
+      vim.api.nvim_buf_set_text(buf, step.edit.line, from, step.edit.line, from + #step.edit.find, vim.split(step.edit.text, '\n', true))
+    end
+    seen.settled = vim.wait(TIMEOUT, function()
+      return not (step.waitGone and has_code(buf, step.waitGone)) and not (step.waitFor and not has_code(buf, step.waitFor))
+    end, 20)
+    seen.after = diagnostics(buf)
   end
   table.insert(out.notes, seen)
 end

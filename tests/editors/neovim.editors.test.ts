@@ -30,6 +30,8 @@ function at(text: string, needle: string): [number, number] {
 
 const BROKEN = join(REPO, 'samples', 'broken-note.pneu');
 const GAS = 'patient   age 45 y\n@ day 1 08:00\noxygen    mask, fio2 0.5\nabg       ph 7.32, pco2 6.0, po2 8.0\nvitls     hr 100\n';
+/** Characters outside ASCII and outside the BMP before the findings: LSP counts UTF-16 units, Neovim bytes. */
+const WIDE = 'patient   age 45 y\n@ day 1 08:00\nnote      called 😀 at 555-123-4567\n';
 const MESSY = 'patient age 60 y,  sex male\n@ day 1 08:00   admitted\nvitals hr 88,rr 20 # calm\nabg   7.40/40/90/24\n';
 
 describe('the README\'s Neovim configuration', () => {
@@ -43,13 +45,14 @@ describe('the README\'s Neovim configuration', () => {
 
 describe('in headless Neovim', () => {
   let run: NeovimRun;
-  let broken: SeenNote, projectNote: SeenNote, loose: SeenNote;
+  let broken: SeenNote, projectNote: SeenNote, loose: SeenNote, wide: SeenNote;
   let projectPath: string;
 
   beforeAll(() => {
     neovimVersion(); // fails with how to install it
     projectPath = note('gas.pneu', GAS, { gasUnit: 'kPa' });
     const loosePath = note('messy.pneu', MESSY);
+    const widePath = note('wide.pneu', WIDE);
     run = runNeovim([
       { path: BROKEN, waitFor: 'PN101' },
       {
@@ -57,8 +60,9 @@ describe('in headless Neovim', () => {
         then: { write: { path: join(projectPath, '..', '..', 'pneumark.config.json'), text: '{ "gasUnit": "kPa", "disabledChecks": ["PN410"] }\n' }, waitGone: 'PN410' },
       },
       { path: loosePath, format: true },
+      { path: widePath, waitFor: 'PN504', then: { edit: { line: 2, find: '4567', text: '4567 or é𝄞 a.b@example.org' }, waitFor: 'PN505' } },
     ]);
-    [broken, projectNote, loose] = run.notes as [SeenNote, SeenNote, SeenNote];
+    [broken, projectNote, loose, wide] = run.notes as [SeenNote, SeenNote, SeenNote, SeenNote];
   }, 120_000);
 
   it('gives .pneu notes the pneumark filetype and one client per project folder', () => {
@@ -70,6 +74,7 @@ describe('in headless Neovim', () => {
     expect(broken.client?.root).toBe(REPO); // the folder with .git
     expect(projectNote.client?.root).toBe(join(projectPath, '..', '..')); // the folder with pneumark.config.json
     expect(loose.client?.root).toBeNull(); // no project folder: a client of its own
+    expect(loose.client?.id).toBe(wide.client?.id); // both outside any project folder
     expect(new Set(run.notes.map((n) => n.client?.id)).size).toBe(3);
   });
 
@@ -93,9 +98,20 @@ describe('in headless Neovim', () => {
 
   it('applies a change of that project file at once, though Neovim 0.7 reports no file changes', () => {
     expect(projectNote.diagnostics.map((d) => d.code)).toContain('PN410');
-    expect(projectNote.gone).toBe(true);
-    expect(projectNote.after).toContain('PN101');
-    expect(projectNote.after).not.toContain('PN410');
+    expect(projectNote.settled).toBe(true);
+    expect(projectNote.after?.map((d) => d.code)).toContain('PN101');
+    expect(projectNote.after?.map((d) => d.code)).not.toContain('PN410');
+  });
+
+  it('places findings after wide characters where they are, before and after an edit Neovim sends in pieces', () => {
+    // Neovim's columns are bytes; the server's, UTF-16 units: the client converts both ways.
+    const bytesTo = (line: string, needle: string) => Buffer.byteLength(line.slice(0, line.indexOf(needle)));
+    const line = WIDE.split('\n')[2]!;
+    expect(wide.diagnostics.find((d) => d.code === 'PN504')).toMatchObject({ lnum: 2, col: bytesTo(line, '555'), end_col: Buffer.byteLength(line) });
+    expect(wide.settled).toBe(true);
+    const edited = line.replace('4567', '4567 or é𝄞 a.b@example.org');
+    expect(wide.after?.find((d) => d.code === 'PN504')).toMatchObject({ lnum: 2, col: bytesTo(line, '555') });
+    expect(wide.after?.find((d) => d.code === 'PN505')).toMatchObject({ lnum: 2, col: bytesTo(edited, 'a.b@'), end_col: Buffer.byteLength(edited) });
   });
 
   it('formats a note with the formatter\'s edits applied by Neovim', () => {

@@ -44,8 +44,16 @@ export interface NotePlan {
   readonly hovers?: readonly (readonly [number, number])[];
   /** Format the note with vim.lsp.buf.formatting_sync. */
   readonly format?: boolean;
-  /** Then write a file behind Neovim's back and wait until no diagnostic has the code `waitGone`. */
-  readonly then?: { readonly write: { readonly path: string; readonly text: string }; readonly waitGone: string };
+  /**
+   * Then write a file behind Neovim's back, or edit the note as typing would (the first `find` on
+   * line `line` becomes `text`), and wait until no diagnostic has the code `waitGone` and one has `waitFor`.
+   */
+  readonly then?: {
+    readonly write?: { readonly path: string; readonly text: string };
+    readonly edit?: { readonly line: number; readonly find: string; readonly text: string };
+    readonly waitGone?: string;
+    readonly waitFor?: string;
+  };
 }
 
 export interface SeenDiagnostic {
@@ -67,9 +75,9 @@ export interface SeenNote {
   readonly diagnostics: readonly SeenDiagnostic[];
   readonly hovers: readonly (string | null)[];
   readonly formatted?: readonly string[];
-  /** After `then`: whether the code went, and the codes then. */
-  readonly gone?: boolean;
-  readonly after?: readonly (string | null)[];
+  /** After `then`: whether the diagnostics waited for came, and the diagnostics then. */
+  readonly settled?: boolean;
+  readonly after?: readonly SeenDiagnostic[];
 }
 
 export interface NeovimRun {
