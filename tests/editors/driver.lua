@@ -2,11 +2,15 @@
 -- loaded as init.lua, and writes what Neovim saw as JSON. The plan (a JSON file named by
 -- PNEUMARK_NVIM_PLAN) lists notes to open, each with what to ask about it:
 --   { "out": path, "notes": [ { "path": ..., "waitFor": code, "hovers": [[line, character]],
---                                "format": true,
+--                                "format": true, "complete": [line, character],
+--                                "action": { "line": n, "title": text },
 --                                "then": { "write": { "path": ..., "text": ... },
 --                                          "edit": { "line": n, "find": ..., "text": ... },
 --                                          "waitGone": code, "waitFor": code } } ] }
--- Lines and characters count from 0, as in LSP. `then` writes a file behind Neovim's back (a
+-- Lines and characters count from 0, as in LSP. `complete` asks for completions there (the
+-- words Neovim's completion menu would offer); `action` asks for the code actions of a line with
+-- its diagnostics, as vim.lsp.buf.code_action does, and applies the first whose title holds
+-- `title`. `then` writes a file behind Neovim's back (a
 -- project file) or edits the buffer as typing would (the first `find` on the line becomes
 -- `text`; Neovim sends the change as an incremental edit), then waits until no diagnostic has
 -- the code `waitGone` and one has `waitFor`. Every wait has a deadline; the outcome of each
@@ -59,6 +63,35 @@ for _, note in ipairs(plan.notes) do
       if reply.result and reply.result.contents then text = reply.result.contents.value or vim.NIL end
     end
     table.insert(seen.hovers, text)
+  end
+  if note.complete then
+    local params = { textDocument = { uri = vim.uri_from_bufnr(buf) }, position = { line = note.complete[1], character = note.complete[2] } }
+    seen.completions = {}
+    for _, reply in pairs(vim.lsp.buf_request_sync(buf, 'textDocument/completion', params, TIMEOUT) or {}) do
+      for _, item in ipairs(vim.lsp.util.text_document_completion_list_to_complete_items(reply.result or {}, '')) do
+        table.insert(seen.completions, item.word)
+      end
+    end
+  end
+  if note.action then
+    local line = note.action.line
+    local params = {
+      textDocument = { uri = vim.uri_from_bufnr(buf) },
+      range = { start = { line = line, character = 0 }, ['end'] = { line = line + 1, character = 0 } },
+      context = { diagnostics = vim.lsp.diagnostic.get_line_diagnostics(buf, line) },
+    }
+    seen.actions = {}
+    local applied = false
+    for _, reply in pairs(vim.lsp.buf_request_sync(buf, 'textDocument/codeAction', params, TIMEOUT) or {}) do
+      for _, action in ipairs(reply.result or {}) do
+        table.insert(seen.actions, action.title)
+        if not applied and action.edit and action.title:find(note.action.title, 1, true) then
+          vim.lsp.util.apply_workspace_edit(action.edit, attached(buf).offset_encoding)
+          applied = true
+        end
+      end
+    end
+    seen.acted = vim.api.nvim_buf_get_lines(buf, 0, -1, false)
   end
   if note.format then
     vim.lsp.buf.formatting_sync(nil, TIMEOUT)

@@ -32,6 +32,7 @@ const BROKEN = join(REPO, 'samples', 'broken-note.pneu');
 const GAS = 'patient   age 45 y\n@ day 1 08:00\noxygen    mask, fio2 0.5\nabg       ph 7.32, pco2 6.0, po2 8.0\nvitls     hr 100\n';
 /** Characters outside ASCII and outside the BMP before the findings: LSP counts UTF-16 units, Neovim bytes. */
 const WIDE = 'patient   age 45 y\n@ day 1 08:00\nnote      called 😀 at 555-123-4567\n';
+const TYPO = 'patient   age 45 y\n@ day 1 08:00\nvitls     hr 100\nvitals    \n';
 const MESSY = 'patient age 60 y,  sex male\n@ day 1 08:00   admitted\nvitals hr 88,rr 20 # calm\nabg   7.40/40/90/24\n';
 
 describe('the README\'s Neovim configuration', () => {
@@ -45,7 +46,7 @@ describe('the README\'s Neovim configuration', () => {
 
 describe('in headless Neovim', () => {
   let run: NeovimRun;
-  let broken: SeenNote, projectNote: SeenNote, loose: SeenNote, wide: SeenNote;
+  let broken: SeenNote, projectNote: SeenNote, loose: SeenNote, wide: SeenNote, typo: SeenNote;
   let projectPath: string;
 
   beforeAll(() => {
@@ -53,6 +54,7 @@ describe('in headless Neovim', () => {
     projectPath = note('gas.pneu', GAS, { gasUnit: 'kPa' });
     const loosePath = note('messy.pneu', MESSY);
     const widePath = note('wide.pneu', WIDE);
+    const typoPath = note('typo.pneu', TYPO);
     run = runNeovim([
       { path: BROKEN, waitFor: 'PN101' },
       {
@@ -61,8 +63,9 @@ describe('in headless Neovim', () => {
       },
       { path: loosePath, format: true },
       { path: widePath, waitFor: 'PN504', then: { edit: { line: 2, find: '4567', text: '4567 or é𝄞 a.b@example.org' }, waitFor: 'PN505' } },
+      { path: typoPath, waitFor: 'PN101', complete: [3, 10], action: { line: 2, title: 'vitals' }, then: { waitGone: 'PN101' } },
     ]);
-    [broken, projectNote, loose, wide] = run.notes as [SeenNote, SeenNote, SeenNote, SeenNote];
+    [broken, projectNote, loose, wide, typo] = run.notes as [SeenNote, SeenNote, SeenNote, SeenNote, SeenNote];
   }, 120_000);
 
   it('gives .pneu notes the pneumark filetype and one client per project folder', () => {
@@ -74,7 +77,7 @@ describe('in headless Neovim', () => {
     expect(broken.client?.root).toBe(REPO); // the folder with .git
     expect(projectNote.client?.root).toBe(join(projectPath, '..', '..')); // the folder with pneumark.config.json
     expect(loose.client?.root).toBeNull(); // no project folder: a client of its own
-    expect(loose.client?.id).toBe(wide.client?.id); // both outside any project folder
+    expect(new Set([loose, wide, typo].map((n) => n.client?.id)).size).toBe(1); // all outside any project folder
     expect(new Set(run.notes.map((n) => n.client?.id)).size).toBe(3);
   });
 
@@ -112,6 +115,14 @@ describe('in headless Neovim', () => {
     const edited = line.replace('4567', '4567 or é𝄞 a.b@example.org');
     expect(wide.after?.find((d) => d.code === 'PN504')).toMatchObject({ lnum: 2, col: bytesTo(line, '555') });
     expect(wide.after?.find((d) => d.code === 'PN505')).toMatchObject({ lnum: 2, col: bytesTo(edited, 'a.b@'), end_col: Buffer.byteLength(edited) });
+  });
+
+  it('offers completions and applies a quick fix, whose edit clears the finding', () => {
+    expect(typo.completions).toEqual(expect.arrayContaining(['hr', 'rr', 'spo2']));
+    expect(typo.actions).toContain('Change to `vitals`');
+    expect(typo.acted?.[2]).toBe('vitals     hr 100'); // the word replaced; the layout is the formatter's
+    expect(typo.settled).toBe(true);
+    expect(typo.after?.map((d) => d.code)).not.toContain('PN101');
   });
 
   it('formats a note with the formatter\'s edits applied by Neovim', () => {

@@ -42,6 +42,10 @@ export interface NotePlan {
   readonly waitFor?: string;
   /** Where to ask for hovers: [line, character] from 0. */
   readonly hovers?: readonly (readonly [number, number])[];
+  /** Where to ask for completions ([line, character] from 0). */
+  readonly complete?: readonly [number, number];
+  /** Ask for the code actions of a line with its diagnostics and apply the first whose title holds `title`. */
+  readonly action?: { readonly line: number; readonly title: string };
   /** Format the note with vim.lsp.buf.formatting_sync. */
   readonly format?: boolean;
   /**
@@ -75,6 +79,11 @@ export interface SeenNote {
   readonly diagnostics: readonly SeenDiagnostic[];
   readonly hovers: readonly (string | null)[];
   readonly formatted?: readonly string[];
+  /** The words of the completions offered. */
+  readonly completions?: readonly string[];
+  /** The titles of the code actions offered, and the note's lines once one was applied. */
+  readonly actions?: readonly string[];
+  readonly acted?: readonly string[];
   /** After `then`: whether the diagnostics waited for came, and the diagnostics then. */
   readonly settled?: boolean;
   readonly after?: readonly SeenDiagnostic[];
