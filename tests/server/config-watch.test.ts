@@ -280,6 +280,41 @@ describe.runIf(posix)('a project file above the workspace, over the protocol', (
   });
 });
 
+describe.runIf(posix)('a project file inside the workspace', () => {
+  it('is watched by the client when it can be told to (it is registered with it)', async () => {
+    const root = tempRoot();
+    const client = await startClient({}, { workspaceFolders: [root] });
+    try {
+      await expect.poll(() => client.registrations.find((r) => r.method === 'workspace/didChangeWatchedFiles'), { timeout: 5000 })
+        .toMatchObject({ registerOptions: { watchers: [{ globPattern: '**/pneumark.config.json' }] } });
+    } finally {
+      await client.close();
+      rmSync(root, { recursive: true, force: true });
+    }
+  });
+
+  it('is watched by the server when the client reports no file changes (Neovim 0.7), and registered with no one', async () => {
+    const root = tempRoot();
+    const ws = join(root, 'ws');
+    mkdirSync(join(ws, 'notes'), { recursive: true });
+    const client = await startClient({}, { workspaceFolders: [ws], watchFiles: false });
+    try {
+      const uri = client.open(join(ws, 'notes', 'a.pneu'), NOTE);
+      expect(threshold(await client.diagnostics(uri))).toBeNull();
+      let count = client.published.length;
+      writeFileSync(join(ws, CONFIG), '{ "hypoxaemiaBelowMmhg": 70 }\n');
+      await client.diagnostics(uri, (p) => client.published.indexOf(p) >= count && threshold(p) === '70', 15000);
+      count = client.published.length;
+      writeFileSync(join(ws, 'notes', CONFIG), '{ "hypoxaemiaBelowMmhg": 72 }\n');
+      await client.diagnostics(uri, (p) => client.published.indexOf(p) >= count && threshold(p) === '72', 15000);
+      expect(client.registrations.map((r) => r.method)).not.toContain('workspace/didChangeWatchedFiles');
+    } finally {
+      await client.close();
+      rmSync(root, { recursive: true, force: true });
+    }
+  });
+});
+
 describe.runIf(process.platform === 'linux')('the watches the server holds (Linux: /proc)', () => {
   it('are on the folders above the workspace only, follow the workspace folders, and are all let go when the note is closed', async () => {
     const root = tempRoot();

@@ -66,6 +66,11 @@ export interface ClientOptions {
   readonly server?: { readonly command: string; readonly args: readonly string[] };
   /** The workspace folders (paths) the client names; none by default (`rootUri` null). */
   readonly workspaceFolders?: readonly string[];
+  /**
+   * Whether the client watches files the server registers (`workspace.didChangeWatchedFiles`
+   * with dynamic registration), as VS Code does (default true); Neovim 0.7 does not.
+   */
+  readonly watchFiles?: boolean;
 }
 
 export async function startClient(settings: Record<string, unknown> = {}, options: ClientOptions = {}): Promise<LspClient> {
@@ -140,6 +145,7 @@ export async function startClient(settings: Record<string, unknown> = {}, option
       workspace: {
         ...(options.workspaceFolders ? { workspaceFolders: true } : {}),
         configuration: options.pullConfiguration ?? true,
+        ...(options.watchFiles ?? true ? { didChangeWatchedFiles: { dynamicRegistration: true } } : {}),
         didChangeConfiguration: { dynamicRegistration: options.pullConfiguration ?? true },
         ...(options.refreshHints ? { inlayHint: { refreshSupport: true } } : {}),
       },

@@ -36,6 +36,15 @@ describe('readClientSettings', () => {
   });
 });
 
+describe('settings from a Lua client (Neovim)', () => {
+  it('take an empty table, which Lua sends as [], as empty, with no problem', () => {
+    // vim.json.encode({}) is "[]": `hints = {}` and `pneumark = {}` arrive as empty lists.
+    expect(readClientSettings([])).toEqual({ settings: DEFAULT_CLIENT_SETTINGS, problem: null, unknownChecks: null });
+    expect(readClientSettings({ hints: [], gasUnit: 'kPa' })).toMatchObject({ settings: { hints: {}, analysis: { gasUnit: 'kPa' } }, problem: null });
+    expect(readClientSettings({ hints: ['mechanics'] }).problem).toMatch(/pneumark\.hints/);
+  });
+});
+
 describe('names in disabledChecks that are no check', () => {
   it('are found case-insensitively, each once, with the check they likely meant', () => {
     expect(unknownCheckNames(['PN302', 'pn302', 'Unusual-Value', 'decimal-comma'])).toEqual([]);

@@ -1,9 +1,9 @@
 /**
  * Watches, for the language server, the folders whose `pneumark.config.json` decides an open
  * note's settings but that the editor's own file watcher does not cover: the folders above the
- * workspace (a shared parent folder) and, without a workspace, all of them. The editor reports
- * changes inside its workspace folders (`workspace/didChangeWatchedFiles`), so those folders are
- * never watched here.
+ * workspace (a shared parent folder) and, without a workspace, all of them. An editor that can
+ * be told what to watch reports changes inside its workspace folders (`workspace/didChangeWatchedFiles`),
+ * so those folders are not watched here; for one that cannot (Neovim 0.7), they are.
  *
  * Each note names the folders it needs (`need`); a folder is watched (Node's `fs.watch`: inotify
  * on Linux, nothing that polls) while some open note needs it, and let go when none does. Events
@@ -32,7 +32,8 @@ export function insideFolders(dir: string, folders: readonly string[]): boolean 
 /**
  * The folders to watch for a note: those the lookup reads (`ProjectConfigs.forPath`), from the
  * note's folder up to the one whose project file applies (a file above that one changes nothing),
- * or up to the root when none does, leaving out the workspace folders and everything inside them.
+ * or up to the root when none does, leaving out the workspace folders the editor watches and
+ * everything inside them.
  */
 export function foldersToWatch(notePath: string, found: string | null, workspaceFolders: readonly string[]): string[] {
   const last = found === null ? null : dirname(found);

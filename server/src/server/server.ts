@@ -10,6 +10,7 @@ import { join, resolve } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import {
   DidChangeConfigurationNotification,
+  DidChangeWatchedFilesNotification,
   type WorkspaceFolder,
   TextDocumentSyncKind,
   TextDocuments,
@@ -176,6 +177,14 @@ export function startServer(connection: Connection, collector: IdleCollector = n
   let canRefreshHints = false;
   /** The workspace folders (paths): the client's own watcher reports changes of project files inside them. */
   let workspaceFolders: string[] = [];
+  /**
+   * The client watches the files the server registers (`workspace.didChangeWatchedFiles` with
+   * dynamic registration). One that does not (Neovim 0.7) reports no change of a project file, in
+   * its workspace folders or elsewhere: the server then watches the folders inside them too.
+   */
+  let clientWatchesFiles = false;
+  /** The folders whose project files the client's watcher reports: none when it watches nothing. */
+  const clientWatchedFolders = (): string[] => (clientWatchesFiles ? workspaceFolders : []);
   /** The client tells of workspace folders added and removed. */
   let folderChanges = false;
 
@@ -196,6 +205,7 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     canRefreshHints = params.capabilities.workspace?.inlayHint?.refreshSupport === true;
     folderChanges = params.capabilities.workspace?.workspaceFolders === true;
     workspaceFolders = workspacePaths(params.workspaceFolders, params.rootUri);
+    clientWatchesFiles = params.capabilities.workspace?.didChangeWatchedFiles?.dynamicRegistration === true;
     return {
       capabilities: {
         // Saves are told of so that a project file above the workspace that could not be watched is looked at again.
@@ -217,6 +227,9 @@ export function startServer(connection: Connection, collector: IdleCollector = n
   connection.onInitialized(() => {
     // Only changes of Pneumark's own settings: a change of any other setting of the editor need not reach us.
     if (canPullConfiguration) void connection.client.register(DidChangeConfigurationNotification.type, { section: 'pneumark' }).catch(() => undefined);
+    // Any client that can be told what to watch is (VS Code's extension also watches them itself:
+    // a change reported twice is analysed once).
+    if (clientWatchesFiles) void connection.client.register(DidChangeWatchedFilesNotification.type, { watchers: [{ globPattern: '**/pneumark.config.json' }] }).catch(() => undefined);
     if (folderChanges) {
       connection.workspace.onDidChangeWorkspaceFolders(guard('workspace folders', undefined, (e: { added: WorkspaceFolder[]; removed: WorkspaceFolder[] }) => {
         const removed = new Set(workspacePaths(e.removed, null));
@@ -308,9 +321,9 @@ export function startServer(connection: Connection, collector: IdleCollector = n
    */
   function watchFoldersOf(uri: string, found: FoundConfig | null): FoundConfig | null {
     const path = notePathOf(uri);
-    if (path === null || !watcher.need(uri, foldersToWatch(path, found?.path ?? null, workspaceFolders))) return found;
+    if (path === null || !watcher.need(uri, foldersToWatch(path, found?.path ?? null, clientWatchedFolders()))) return found;
     const again = configs.forPath(path, true);
-    if (configKey(again) !== configKey(found)) watcher.need(uri, foldersToWatch(path, again?.path ?? null, workspaceFolders));
+    if (configKey(again) !== configKey(found)) watcher.need(uri, foldersToWatch(path, again?.path ?? null, clientWatchedFolders()));
     return again;
   }
 

@@ -32,6 +32,8 @@ export const DEFAULT_CLIENT_SETTINGS: ClientSettings = clientSettingsSchema.pars
  * Names in `disabledChecks` that are no check's code or alias are kept (they switch nothing off,
  * as in `pneumark.config.json`) and named in `unknownChecks`, with the check each likely meant:
  * `PN320` or `unusal-value` would otherwise leave a check on that its author believes off.
+ * An empty list stands for an empty object (the section or `hints`): Lua has one kind of table,
+ * and Neovim sends an empty one as `[]`.
  */
 export function readClientSettings(raw: unknown): { settings: ClientSettings; problem: string | null; unknownChecks: string | null } {
   const source = isRecord(raw) ? raw : {};
@@ -58,7 +60,7 @@ export function readClientSettings(raw: unknown): { settings: ClientSettings; pr
       const on = take(`hints.${key}`, z.boolean(), rawHints[key]);
       if (on !== undefined) hints[key] = on;
     }
-  } else if (rawHints !== undefined && rawHints !== null) {
+  } else if (rawHints !== undefined && rawHints !== null && !isEmptyList(rawHints)) {
     problems.push('pneumark.hints: expected an object of booleans');
   }
   const own = (key: string): unknown => (Object.prototype.hasOwnProperty.call(source, key) ? source[key] : undefined);
@@ -78,6 +80,11 @@ export function readClientSettings(raw: unknown): { settings: ClientSettings; pr
     problem: problems.length > 0 ? problems.join('; ') : null,
     unknownChecks: unknown.length > 0 ? `pneumark.disabledChecks: ${unknown.map(unknownCheckSentence).join(' ')}` : null,
   };
+}
+
+/** An empty list where an object is expected: a Lua client's empty table (Neovim encodes `{}` as `[]`). */
+function isEmptyList(value: unknown): boolean {
+  return Array.isArray(value) && value.length === 0;
 }
 
 function isRecord(value: unknown): value is Record<string, unknown> {
