@@ -38,6 +38,8 @@ describe('a misspelt device written first on an oxygen line', () => {
       const text = `@ 08:00\n${line}\n`;
       const found = checkNote(text).findings.filter((f) => f.code === 'PN201');
       expect(found.map((f) => f.message), written).toEqual([`\`${written}\` is neither a device nor a key of oxygen lines. Did you mean \`room air\`?`]);
+      // Its words are no keys without a value (PN102): the one finding says what they are.
+      expect(checkNote(text).findings.map((f) => f.code), written).toEqual(['PN201']);
       // One letter from `room air`: safe for "fix all", as a one-letter slip of a long key is.
       expect(keyFixes(text).map((f) => [f.key, f.titles, f.preferred]), written).toEqual([[written, ['Change to `room air`'], [true]]]);
       const fixed = applyEdits(text, found[0]!.fixes[0]!.edits);
@@ -62,6 +64,7 @@ describe('a misspelt device written first on an oxygen line', () => {
     const text = '@ 08:00\noxygen device room aor, fio2 0.21\n';
     const found = checkNote(text).findings.filter((f) => f.code === 'PN205' || f.code === 'PN201');
     expect(found.map((f) => [f.code, f.message])).toEqual([['PN205', '`room aor` is not a known value for oxygen device. Did you mean `room air`?']]);
+    expect(checkNote(text).findings.map((f) => f.code)).toEqual(['PN205']);
     const fixed = applyEdits(text, found[0]!.fixes[0]!.edits);
     expect(fixed).toBe('@ 08:00\noxygen device room air, fio2 0.21\n');
     expect(checkNote(fixed).findings).toEqual([]);
@@ -69,6 +72,7 @@ describe('a misspelt device written first on an oxygen line', () => {
 
   it('is not made of words a comma separates, of a word that is a key, or of words after the first item', () => {
     expect(keyFixes('@ 08:00\noxygen room, aor\n').map((f) => [f.key, f.titles])).toEqual([['room', []], ['aor', []]]);
+    expect(checkNote('@ 08:00\noxygen room, aor\n').findings.map((f) => f.code)).toEqual(['PN102', 'PN201', 'PN102', 'PN201']);
     expect(keyFixes('@ 08:00\noxygen mask 10, room aor\n').map((f) => [f.key, f.titles])).toEqual([['room', []], ['aor', []]]);
     expect(keyFixes('@ 08:00\noxygen room flow 2\n').map((f) => [f.key, f.titles])).toEqual([['room', []]]);
   });

@@ -11,6 +11,7 @@ import { pairNumbers, thousandsReading } from '../syntax/parser';
 import { scanNumber } from '../syntax/lexer';
 import { formatNumber, wordList } from '../util/format';
 import { closest, editDistance } from '../util/suggest';
+import { nearDevicePhrase } from '../fields/device-phrases';
 import { doubtBoundsAt, softBoundsAt, unitsWithin, within, type BoundsContext } from './bounds';
 import type { StatedValue } from './model';
 import type { ReadIssue } from './read-issues';
@@ -247,7 +248,7 @@ function unknownWordIssue(item: ItemNode, field: FieldDef, line: number, lineIte
   const value = item.value!;
   const known = [...new Set(Object.values(field.words ?? {}))];
   // `device room aor`: a device of several words with a word misspelt, the words after the first read as keys.
-  const phrase = field.id === 'device' ? nearDevicePhrase(value, lineItems, lineItems.indexOf(item) + 1, lineText) : null;
+  const phrase = field.id === 'device' ? devicePhraseAt(value, lineItems, lineItems.indexOf(item) + 1, lineText) : null;
   if (phrase) {
     return {
       check: 'unknown-word',
@@ -323,7 +324,7 @@ function unknownKeyIssue(item: ItemNode, section: SectionId, line: number, lineI
     // The first words of an oxygen line are its device: a misspelt device of several words
     // (`oxygen room aor`, `oxygen rom air 2`) reads as unknown keys, and is reported once, on all
     // its words, with the device offered for them together; its later words are not reported again.
-    const phrase = lineItems[0] === item ? nearDevicePhrase(key, lineItems, 1, lineText) : null;
+    const phrase = lineItems[0] === item ? devicePhraseAt(key, lineItems, 1, lineText) : null;
     if (phrase) {
       const fix = phraseFix(phrase);
       return {
@@ -355,12 +356,6 @@ function unknownKeyIssue(item: ItemNode, section: SectionId, line: number, lineI
 /** Runs of blanks between the words of a phrase. */
 const BLANKS = /[ \t\u00a0]+/g;
 
-/** Spellings of oxygen devices of more than one word (`room air`), each split into its words; made once. */
-const DEVICE_PHRASES: readonly { readonly device: string; readonly words: readonly string[] }[] = (() => {
-  const words = FIELDS.find((f) => f.id === 'device')?.words ?? {};
-  return Object.keys(words).filter((w) => w.includes(' ')).map((w) => ({ device: words[w]!, words: w.split(' ') }));
-})();
-
 /** A run of words that is near a device of several words but not one: what it reads as, and where. */
 interface DevicePhrase {
   /** The words as written (with the blanks between them). */
@@ -374,36 +369,30 @@ interface DevicePhrase {
 
 /**
  * The device of several words (`room air`) that the word `first` and the keys of the items from
- * `from` on are near, each word within the distance of a did-you-mean (`closest`) and at least one
- * of them misspelt: `room aor`, `rom air`. The words after the first must be unknown keys, separated
- * by blanks only (no comma), and all but the last without a value (the last may have the flow:
- * `rom air 2`). Null when there is none.
+ * `from` on are near (`nearDevicePhrase`): `room aor`, `rom air`. The words after the first must be
+ * unknown keys, separated by blanks only (no comma), and all but the last without a value (the
+ * last may have the flow: `rom air 2`). Null when there is none.
  */
-function nearDevicePhrase(first: { readonly text: string; readonly span: Span }, lineItems: readonly ItemNode[], from: number, lineText: string): DevicePhrase | null {
-  for (const phrase of DEVICE_PHRASES) {
-    const k = phrase.words.length;
-    if (from + k - 1 > lineItems.length || !nearWord(first.text, phrase.words[0]!)) continue;
-    let misspelt = first.text.toLowerCase() !== phrase.words[0];
-    let end = first.span.end;
-    let fits = true;
-    for (let j = 1; j < k && fits; j++) {
-      const next = lineItems[from + j - 1]!;
-      const key = next.key;
-      fits = key !== null && next.field === null && next.implied === null && (j === k - 1 || next.value === null) &&
-        lineText.length >= key.span.start && lineText.slice(end, key.span.start).trim() === '' && nearWord(key.text, phrase.words[j]!);
-      if (!fits || key === null) break;
-      misspelt ||= key.text.toLowerCase() !== phrase.words[j];
-      end = key.span.end;
+function devicePhraseAt(first: { readonly text: string; readonly span: Span }, lineItems: readonly ItemNode[], from: number, lineText: string): DevicePhrase | null {
+  let end = first.span.end;
+  let count = 0;
+  const phrase = nearDevicePhrase((j) => {
+    if (j === 0) {
+      end = first.span.end;
+      count = 0;
+      return first.text;
     }
-    if (!fits || !misspelt) continue;
-    return { text: lineText.slice(first.span.start, end), span: { start: first.span.start, end }, device: phrase.device, items: k - 1 };
-  }
-  return null;
-}
-
-/** Whether a written word is a word of a device, or near it as a did-you-mean is (`closest`). */
-function nearWord(written: string, word: string): boolean {
-  return written.toLowerCase() === word || closest(written, [word]).length > 0;
+    const next = lineItems[from + j - 1];
+    const key = next?.key ?? null;
+    if (!next || key === null || next.field !== null || next.implied !== null || key.span.start > lineText.length || lineText.slice(end, key.span.start).trim() !== '') return null;
+    // A value ends the run: only the last word may have one (checked below, once the phrase's length is known).
+    if (j > 1 && lineItems[from + j - 2]!.value !== null) return null;
+    end = key.span.end;
+    count = j;
+    return key.text;
+  });
+  if (!phrase || count !== phrase.words.length - 1) return null;
+  return { text: lineText.slice(first.span.start, end), span: { start: first.span.start, end }, device: phrase.device, items: count };
 }
 
 /** The fix that writes a device for the words near it. */
@@ -420,8 +409,8 @@ function inDevicePhrase(item: ItemNode, lineItems: readonly ItemNode[], lineText
   for (let i = 0; i < at; i++) {
     const start = lineItems[i]!;
     let phrase: DevicePhrase | null = null;
-    if (i === 0 && start.field === null && start.key !== null && start.value === null) phrase = nearDevicePhrase(start.key, lineItems, 1, lineText);
-    else if (start.field?.id === 'device' && start.implied === null && start.value?.kind === 'word') phrase = nearDevicePhrase(start.value, lineItems, i + 1, lineText);
+    if (i === 0 && start.field === null && start.key !== null && start.value === null) phrase = devicePhraseAt(start.key, lineItems, 1, lineText);
+    else if (start.field?.id === 'device' && start.implied === null && start.value?.kind === 'word') phrase = devicePhraseAt(start.value, lineItems, i + 1, lineText);
     if (phrase && at <= i + phrase.items) return true;
   }
   return false;
