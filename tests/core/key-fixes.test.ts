@@ -75,6 +75,7 @@ describe('a misspelt device written first on an oxygen line', () => {
     expect(checkNote('@ 08:00\noxygen room, aor\n').findings.map((f) => f.code)).toEqual(['PN102', 'PN201', 'PN102', 'PN201']);
     expect(keyFixes('@ 08:00\noxygen mask 10, room aor\n').map((f) => [f.key, f.titles])).toEqual([['room', []], ['aor', []]]);
     expect(keyFixes('@ 08:00\noxygen room flow 2\n').map((f) => [f.key, f.titles])).toEqual([['room', []]]);
+    expect(keyFixes('@ 08:00\noxygen room 5 L/min aor\n').map((f) => [f.key, f.titles])).toEqual([['room', []], ['aor', []]]);
   });
 
   it('is not offered a device after the first word, where a device cannot stand', () => {

@@ -384,9 +384,8 @@ function devicePhraseAt(first: { readonly text: string; readonly span: Span }, l
     }
     const next = lineItems[from + j - 1];
     const key = next?.key ?? null;
+    // Only blanks since the word before: a comma or a value (`room 5 aor`) ends the run.
     if (!next || key === null || next.field !== null || next.implied !== null || key.span.start > lineText.length || lineText.slice(end, key.span.start).trim() !== '') return null;
-    // A value ends the run: only the last word may have one (checked below, once the phrase's length is known).
-    if (j > 1 && lineItems[from + j - 2]!.value !== null) return null;
     end = key.span.end;
     count = j;
     return key.text;
