@@ -4,6 +4,7 @@
 // never meant (`p 1.2` read as potassium). The rule is ours (common practice of safe auto-fixes, no source).
 import { describe, expect, it } from 'vitest';
 import { checkNote } from '../../server/src/core';
+import { applyEdits } from '../../server/src/core/service/text-edits';
 
 function keyFixes(text: string): { key: string; titles: string[]; preferred: boolean[] }[] {
   const lines = text.split('\n');
@@ -30,6 +31,51 @@ describe('a misspelt device written first on an oxygen line', () => {
     const fixed = checkNote('@ 08:00\noxygen    cannula 2 L/min\n');
     expect(fixed.findings).toEqual([]);
     expect(fixed.analysis.timeline.timepoints[0]!.values.numberOf('o2_flow')).toBe(2);
+  });
+
+  it('of two words with one misspelt (`room aor`, `rom air`) is reported once, on both words, and offered the device for them together', () => {
+    for (const [written, line] of [['room aor', 'oxygen    room aor'], ['rom air', 'oxygen    rom air'], ['Room  Aor', 'oxygen    Room  Aor']] as const) {
+      const text = `@ 08:00\n${line}\n`;
+      const found = checkNote(text).findings.filter((f) => f.code === 'PN201');
+      expect(found.map((f) => f.message), written).toEqual([`\`${written}\` is neither a device nor a key of oxygen lines. Did you mean \`room air\`?`]);
+      // Its words are no keys without a value (PN102): the one finding says what they are.
+      expect(checkNote(text).findings.map((f) => f.code), written).toEqual(['PN201']);
+      // One letter from `room air`: safe for "fix all", as a one-letter slip of a long key is.
+      expect(keyFixes(text).map((f) => [f.key, f.titles, f.preferred]), written).toEqual([[written, ['Change to `room air`'], [true]]]);
+      const fixed = applyEdits(text, found[0]!.fixes[0]!.edits);
+      expect(fixed).toBe('@ 08:00\noxygen    room air\n');
+      const again = checkNote(fixed);
+      expect(again.findings).toEqual([]);
+      expect(again.analysis.timeline.timepoints[0]!.values.get('device')?.stated.word).toBe('room air');
+    }
+  });
+
+  it('of two words keeps the flow after it, and the fix no longer leaves the second word behind (`raom air 2` was offered `room air air 2`)', () => {
+    const text = '@ 08:00\noxygen raom air 2\n';
+    const [f] = checkNote(text).findings.filter((x) => x.code === 'PN201');
+    expect(f?.fixes.map((x) => applyEdits(text, x.edits))).toEqual(['@ 08:00\noxygen room air 2\n']);
+    // The flow is then read as the device's (and room air takes none: PN310).
+    const fixed = checkNote('@ 08:00\noxygen room air 2\n');
+    expect(fixed.analysis.timeline.timepoints[0]!.values.numberOf('o2_flow')).toBe(2);
+    expect(fixed.findings.map((x) => x.code)).toEqual(['PN310']);
+  });
+
+  it('of two words after the `device` key is offered the device too (PN205), and its second word is not reported as a key', () => {
+    const text = '@ 08:00\noxygen device room aor, fio2 0.21\n';
+    const found = checkNote(text).findings.filter((f) => f.code === 'PN205' || f.code === 'PN201');
+    expect(found.map((f) => [f.code, f.message])).toEqual([['PN205', '`room aor` is not a known value for oxygen device. Did you mean `room air`?']]);
+    expect(checkNote(text).findings.map((f) => f.code)).toEqual(['PN205']);
+    const fixed = applyEdits(text, found[0]!.fixes[0]!.edits);
+    expect(fixed).toBe('@ 08:00\noxygen device room air, fio2 0.21\n');
+    expect(checkNote(fixed).findings).toEqual([]);
+  });
+
+  it('is not made of words a comma separates, of a word that is a key, or of words after the first item', () => {
+    expect(keyFixes('@ 08:00\noxygen room, aor\n').map((f) => [f.key, f.titles])).toEqual([['room', []], ['aor', []]]);
+    expect(checkNote('@ 08:00\noxygen room, aor\n').findings.map((f) => f.code)).toEqual(['PN102', 'PN201', 'PN102', 'PN201']);
+    expect(keyFixes('@ 08:00\noxygen mask 10, room aor\n').map((f) => [f.key, f.titles])).toEqual([['room', []], ['aor', []]]);
+    expect(keyFixes('@ 08:00\noxygen room flow 2\n').map((f) => [f.key, f.titles])).toEqual([['room', []]]);
+    expect(keyFixes('@ 08:00\noxygen room 5 L/min aor\n').map((f) => [f.key, f.titles])).toEqual([['room', []], ['aor', []]]);
   });
 
   it('is not offered a device after the first word, where a device cannot stand', () => {

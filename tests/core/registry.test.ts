@@ -62,6 +62,12 @@ describe('field registry', () => {
     }
   });
 
+  it('gives usual bounds to every field a note may write in more than one unit, so a unit is offered only where a number is usual in it', () => {
+    // FiO2 (a fraction or a percentage) has a check of its own (PN307).
+    const without = FIELDS.filter((f) => f.kind !== 'word' && (f.units?.length ?? 0) > 1 && !f.soft && f.id !== 'fio2').map((f) => f.id);
+    expect(without).toEqual([]);
+  });
+
   it('has unique ids', () => {
     expect(new Set(FIELDS.map((f) => f.id)).size).toBe(FIELDS.length);
   });

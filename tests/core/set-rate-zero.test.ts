@@ -26,6 +26,13 @@ describe('a set rate of 0 in a mode with mandatory breaths (PN312)', () => {
     expect(pn312('@ 08:00\nvent mode VC, vt 420 mL, rate 0, peep 5\n@ 09:00\nvent peep 6')).toHaveLength(1);
   });
 
+  it('stays quiet in APRV, whose rate is the release frequency: no releases is continuous pressure with spontaneous breaths, which may be meant (common practice, no source)', () => {
+    expect(pn312('@ 08:00\nvent mode APRV, rate 0, peep 25')).toEqual([]);
+    // Nor where a rate of 0 is carried into APRV (reported once, under VC), or APRV's rate of 0 carried on.
+    expect(pn312('@ 08:00\nvent mode VC, vt 420 mL, rate 0, peep 5\n@ 09:00\nvent mode APRV').map((f) => f.range.start.line)).toEqual([1]);
+    expect(pn312('@ 08:00\nvent mode APRV, rate 0, peep 25\n@ 09:00\nvent peep 24')).toEqual([]);
+  });
+
   it('fires where a rate of 0 is written under a mode carried from an earlier line', () => {
     // A rate restated on a later line without the mode: reported there, on the rate.
     const f = pn312('@ 08:00\nvent mode VC, vt 420 mL, rate 14, peep 5\n@ 09:00\nvent rate 0');
@@ -51,6 +58,15 @@ describe('minute ventilation with a set rate of 0', () => {
     const d = derivation('@ 08:00\nvent mode PS, ps 10, vt 420 mL, rate 0, peep 5');
     expect(d.derived.find((v) => v.id === 'minute_ventilation')).toBeUndefined();
     expect(d.missing.find((m) => m.id === 'minute_ventilation')?.needs).toEqual(['rr']);
+  });
+
+  it('asks for a measured rate in APRV with a release rate of 0, as in a spontaneous mode, never shows 0 or withholds it as a mistake', () => {
+    const d = derivation('@ 08:00\nvent mode APRV, vt 420 mL, rate 0, peep 25');
+    expect(d.derived.find((v) => v.id === 'minute_ventilation')).toBeUndefined();
+    expect(d.notApplicable.find((n) => n.id === 'minute_ventilation')).toBeUndefined();
+    expect(d.missing.find((m) => m.id === 'minute_ventilation')?.needs).toEqual(['rr']);
+    // With a measured rate: 420 mL × 12 /min = 5.04 L/min.
+    expect(derivation('@ 08:00\nvent mode APRV, vt 420 mL, rate 0, peep 25\nvitals rr 12').derived.find((v) => v.id === 'minute_ventilation')?.value).toBeCloseTo(5.04, 6);
   });
 
   it('is 0 for a measured rate of 0 (apnoea is a measurement)', () => {

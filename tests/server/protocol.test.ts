@@ -173,6 +173,21 @@ describe('language features', () => {
     expect(all?.edit?.changes?.[broken]?.length).toBe(2);
   });
 
+  it('offers a misspelt oxygen device of two words as one quick fix over both words', async () => {
+    const text = '@ 08:00\noxygen room aor\n';
+    const uri = client.open(join(process.cwd(), 'device-words.pneu'), text);
+    const p = await client.diagnostics(uri);
+    const unknown = p.diagnostics.filter((d) => d.code === 'PN201');
+    expect(unknown.map((d) => d.range)).toEqual([{ start: { line: 1, character: 7 }, end: { line: 1, character: 15 } }]);
+    // Asked at the second word, where the cursor is after typing it.
+    const at = { line: 1, character: 13 };
+    const actions = await client.connection.sendRequest<CodeAction[]>('textDocument/codeAction', { textDocument: { uri }, range: { start: at, end: at }, context: { diagnostics: unknown } });
+    const fix = actions.find((a) => a.title === 'Change to `room air`');
+    expect(fix?.isPreferred).toBe(true);
+    expect(fix?.edit?.changes?.[uri]).toEqual([{ range: unknown[0]!.range, newText: 'room air' }]);
+    expect(applyEdits(text, fix!.edit!.changes![uri]!)).toBe('@ 08:00\noxygen room air\n');
+  });
+
   it('gives timepoints as the outline, folding ranges, and formatting edits', async () => {
     const symbols = await client.connection.sendRequest<DocumentSymbol[]>('textDocument/documentSymbol', { textDocument: { uri } });
     expect(symbols.map((s) => s.name)).toEqual(expect.arrayContaining(['admitted to intensive care, intubated', 'weaning trial']));

@@ -6,11 +6,12 @@
 import { canonicalWord, FIELDS, keysInSection, type FieldDef } from '../fields/registry';
 import { SECTIONS, type SectionId } from '../fields/sections';
 import { convert, unitById, UNITS, unitsForSpelling, type UnitDef } from '../fields/units';
-import type { ItemNode, LineFix, PairValue } from '../syntax/tree';
+import type { ItemNode, LineFix, PairValue, Span } from '../syntax/tree';
 import { pairNumbers, thousandsReading } from '../syntax/parser';
 import { scanNumber } from '../syntax/lexer';
 import { formatNumber, wordList } from '../util/format';
 import { closest, editDistance } from '../util/suggest';
+import { nearDevicePhrase } from '../fields/device-phrases';
 import { doubtBoundsAt, softBoundsAt, unitsWithin, within, type BoundsContext } from './bounds';
 import type { StatedValue } from './model';
 import type { ReadIssue } from './read-issues';
@@ -140,10 +141,13 @@ const EMPTY_ITEMS: readonly ItemNode[] = Object.freeze([]);
  * appended to `issues` (`lineItems`, the items of its line, shape the fixes offered). Returns null
  * when there is nothing to state (unknown key, no value).
  */
-export function readItem(item: ItemNode, section: SectionId, line: number, ctx: ReadContext, issues: ReadIssue[], lineItems: readonly ItemNode[] = EMPTY_ITEMS): StatedValue | null {
+export function readItem(item: ItemNode, section: SectionId, line: number, ctx: ReadContext, issues: ReadIssue[], lineItems: readonly ItemNode[] = EMPTY_ITEMS, lineText = ''): StatedValue | null {
   const field = item.field;
   if (!field) {
-    if (item.key) issues.push(unknownKeyIssue(item, section, line, lineItems));
+    if (item.key) {
+      const issue = unknownKeyIssue(item, section, line, lineItems, lineText);
+      if (issue) issues.push(issue);
+    }
     return null;
   }
   // Read through the item's flat accessors: its value and unit are built only where needed.
@@ -155,7 +159,7 @@ export function readItem(item: ItemNode, section: SectionId, line: number, ctx: 
     const text = item.value!.text;
     const word = field.openWords && (kind !== 'word' || isNumberText(text)) ? null : canonicalWord(field, text);
     if (word === null) {
-      issues.push(unknownWordIssue(item, field, line));
+      issues.push(unknownWordIssue(item, field, line, lineItems, lineText));
       return new Stated(field, section, line, item, null, null, null, null, false, null, false);
     }
     return new Stated(field, section, line, item, null, null, word, null, false, null, true);
@@ -240,9 +244,20 @@ function isNumberText(text: string): boolean {
   return text.length > 0 && scanNumber(text) === text.length;
 }
 
-function unknownWordIssue(item: ItemNode, field: FieldDef, line: number): ReadIssue {
+function unknownWordIssue(item: ItemNode, field: FieldDef, line: number, lineItems: readonly ItemNode[], lineText: string): ReadIssue {
   const value = item.value!;
   const known = [...new Set(Object.values(field.words ?? {}))];
+  // `device room aor`: a device of several words with a word misspelt, the words after the first read as keys.
+  const phrase = field.id === 'device' ? devicePhraseAt(value, lineItems, lineItems.indexOf(item) + 1, lineText) : null;
+  if (phrase) {
+    return {
+      check: 'unknown-word',
+      line,
+      span: phrase.span,
+      message: `\`${phrase.text}\` is not a known value for ${field.label.toLowerCase()}. Did you mean \`${phrase.device}\`?`,
+      fixes: [phraseFix(phrase)],
+    };
+  }
   const near = closest(value.text, Object.keys(field.words ?? {}));
   return {
     check: 'unknown-word',
@@ -303,8 +318,25 @@ function otherUnitIssue(item: ItemNode, field: FieldDef, line: number, readUnit:
   };
 }
 
-function unknownKeyIssue(item: ItemNode, section: SectionId, line: number, lineItems: readonly ItemNode[]): ReadIssue {
+function unknownKeyIssue(item: ItemNode, section: SectionId, line: number, lineItems: readonly ItemNode[], lineText: string): ReadIssue | null {
   const key = item.key!;
+  if (section === 'oxygen') {
+    // The first words of an oxygen line are its device: a misspelt device of several words
+    // (`oxygen room aor`, `oxygen rom air 2`) reads as unknown keys, and is reported once, on all
+    // its words, with the device offered for them together; its later words are not reported again.
+    const phrase = lineItems[0] === item ? devicePhraseAt(key, lineItems, 1, lineText) : null;
+    if (phrase) {
+      const fix = phraseFix(phrase);
+      return {
+        check: 'unknown-key',
+        line,
+        span: phrase.span,
+        message: `\`${phrase.text}\` is neither a device nor a key of oxygen lines. Did you mean \`${phrase.device}\`?`,
+        fixes: [{ ...fix, preferred: safeKeyFix(phrase.text.toLowerCase().replace(BLANKS, ' '), phrase.device.toLowerCase()) }],
+      };
+    }
+    if (inDevicePhrase(item, lineItems, lineText)) return null;
+  }
   // The first word of an oxygen line is its device: a misspelt one (`oxygen canula 2`) reads as an
   // unknown key, and is offered the devices it is near.
   const devices = section === 'oxygen' && lineItems[0] === item ? nearDevices(key.text) : [];
@@ -319,6 +351,68 @@ function unknownKeyIssue(item: ItemNode, section: SectionId, line: number, lineI
     message: `\`${key.text}\` is ${devices.length > 0 ? 'neither a device nor a key' : 'not a key'} of ${section} lines${where}.${hint}`,
     fixes: near.map((k) => ({ title: `Change to \`${k}\``, edits: [{ span: key.span, newText: k }], preferred: near.length === 1 && safeKeyFix(key.text.toLowerCase(), k.toLowerCase()) })),
   };
+}
+
+/** Runs of blanks between the words of a phrase. */
+const BLANKS = /[ \t\u00a0]+/g;
+
+/** A run of words that is near a device of several words but not one: what it reads as, and where. */
+interface DevicePhrase {
+  /** The words as written (with the blanks between them). */
+  readonly text: string;
+  readonly span: Span;
+  /** The device's spelling offered. */
+  readonly device: string;
+  /** How many items after the first word the phrase takes. */
+  readonly items: number;
+}
+
+/**
+ * The device of several words (`room air`) that the word `first` and the keys of the items from
+ * `from` on are near (`nearDevicePhrase`): `room aor`, `rom air`. The words after the first must be
+ * unknown keys, separated by blanks only (no comma), and all but the last without a value (the
+ * last may have the flow: `rom air 2`). Null when there is none.
+ */
+function devicePhraseAt(first: { readonly text: string; readonly span: Span }, lineItems: readonly ItemNode[], from: number, lineText: string): DevicePhrase | null {
+  let end = first.span.end;
+  let count = 0;
+  const phrase = nearDevicePhrase((j) => {
+    if (j === 0) {
+      end = first.span.end;
+      count = 0;
+      return first.text;
+    }
+    const next = lineItems[from + j - 1];
+    const key = next?.key ?? null;
+    // Only blanks since the word before: a comma or a value (`room 5 aor`) ends the run.
+    if (!next || key === null || next.field !== null || next.implied !== null || key.span.start > lineText.length || lineText.slice(end, key.span.start).trim() !== '') return null;
+    end = key.span.end;
+    count = j;
+    return key.text;
+  });
+  if (!phrase || count !== phrase.words.length - 1) return null;
+  return { text: lineText.slice(first.span.start, end), span: { start: first.span.start, end }, device: phrase.device, items: count };
+}
+
+/** The fix that writes a device for the words near it. */
+function phraseFix(phrase: DevicePhrase): LineFix {
+  return { title: `Change to \`${phrase.device}\``, edits: [{ span: phrase.span, newText: phrase.device }] };
+}
+
+/**
+ * Whether an unknown key is a later word of a device phrase reported on its first word (by the
+ * first item of the line, or by the word of a `device` key before it).
+ */
+function inDevicePhrase(item: ItemNode, lineItems: readonly ItemNode[], lineText: string): boolean {
+  const at = lineItems.indexOf(item);
+  for (let i = 0; i < at; i++) {
+    const start = lineItems[i]!;
+    let phrase: DevicePhrase | null = null;
+    if (i === 0 && start.field === null && start.key !== null && start.value === null) phrase = devicePhraseAt(start.key, lineItems, 1, lineText);
+    else if (start.field?.id === 'device' && start.implied === null && start.value?.kind === 'word') phrase = devicePhraseAt(start.value, lineItems, i + 1, lineText);
+    if (phrase && at <= i + phrase.items) return true;
+  }
+  return false;
 }
 
 /** The oxygen devices a word is near (`canula` → cannula), each by its usual name. */

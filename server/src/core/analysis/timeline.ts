@@ -538,7 +538,7 @@ function gasUnitInForce(state: CarryState, settings: Settings): 'mmHg' | 'kPa' {
 function readLine(node: SectionLine, context: ReadContext, issues: ReadIssue[], into: (StatedValue | undefined)[], at: number): number {
   const items = node.items;
   for (let k = 0; k < items.length; k++) {
-    const stated = readItem(items[k]!, node.section, node.line, context, issues, items);
+    const stated = readItem(items[k]!, node.section, node.line, context, issues, items, node.text);
     if (stated) into[at++] = stated;
   }
   return at;

@@ -84,7 +84,7 @@ export const badShorthand = syntaxCheck('PN106', 'bad-shorthand', 'Unreadable sh
 export const unknownKey = readCheck('PN201', 'unknown-key', 'Unknown key', 'error', ['units'], FORMAT_RULE, {
   fires: 'An item key is not one of the keys (or aliases) of its section.',
   example: 'vitals hr 118, rrr 26',
-  fix: 'Use a key of the section; the quick fix offers the nearest ones. grammar/README.md lists the keys of each section.',
+  fix: 'Use a key of the section; the quick fix offers the nearest ones, and at the start of an oxygen line the nearest device, also for a device of two words with one misspelt (`room aor` → `room air`, both words at once). grammar/README.md lists the keys of each section.',
 });
 
 export const unknownUnit = readCheck('PN202', 'unknown-unit', 'Unknown unit', 'error', ['units'], FORMAT_RULE, {

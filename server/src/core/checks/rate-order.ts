@@ -55,11 +55,13 @@ export const setRateZero = defineCheck({
   severity: 'warning',
   tags: ['plausibility'],
   doc: {
-    fires: `The set ventilator rate is 0 in a mode that delivers mandatory breaths (${[...MODES_WITH_SET_BREATHS].join(', ')}): such a mode would give no breath unless the patient triggers one, so the rate or the mode is likely mistyped. Reported where the rate or the mode is written. Spontaneous modes (PS, CPAP) and a vent line without a mode are not reported. Without a measured rate (vitals \`rr\`), minute ventilation and what follows from it (mechanical power, ventilatory ratio) are withheld rather than shown as 0.`,
+    fires: `The set ventilator rate is 0 in a mode that delivers mandatory breaths (${[...MODES_WITH_SET_BREATHS].join(', ')}): such a mode would give no breath unless the patient triggers one, so the rate or the mode is likely mistyped. Reported where the rate or the mode is written. Spontaneous modes (PS, CPAP) and a vent line without a mode are not reported. Nor is APRV: its rate is the release frequency, and with no releases the patient breathes spontaneously at the high pressure, a CPAP-like state that may be meant (the last step of a wean from APRV before the mode is changed to CPAP), so it is treated as a spontaneous mode. Without a measured rate (vitals \`rr\`), minute ventilation and what follows from it (mechanical power, ventilatory ratio) are withheld rather than shown as 0.`,
     example: '@ 08:00\nvent mode VC, vt 420 mL, rate 0, peep 8',
     fix: 'Write the set rate (`rate 16`), or the mode the patient is on (`mode PS`) if the breaths are spontaneous. A measured rate on the vitals line gives the minute ventilation.',
   },
-  source: 'common practice, no source: volume control, pressure control, PRVC and SIMV deliver at least the set number of breaths',
+  source: 'common practice, no source: volume control, pressure control, PRVC and SIMV deliver at least the set number of breaths; APRV with no releases is continuous pressure with spontaneous breathing',
+  // APRV is left out on purpose (see the doc): a release rate of 0 is unusual but describes a state
+  // that may be meant, not a contradiction; minute ventilation then needs a measured rate, as in PS.
   runTimepoint(ctx) {
     const values = ctx.timepoint.values;
     // Asked without building the values: most timepoints set no rate of 0.

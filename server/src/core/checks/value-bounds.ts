@@ -135,7 +135,7 @@ export const impossibleValue = defineCheck({
   doc: {
     fires: 'A value lies outside the hard bounds of its field: physically or physiologically impossible. The value is not used in any calculation.',
     example: 'abg ph 8.4',
-    fix: 'Check the transcription and the unit. Where the number is ordinary in the field\'s other unit (`temp 98.6 C`, `pco2 56 kPa`), a quick fix writes that unit. The bounds of each field and their sources are listed in grammar/README.md.',
+    fix: 'Check the transcription and the unit. Where the number is ordinary in the field\'s other unit (`temp 98.6 C`, `pco2 56 kPa`), a quick fix writes that unit; a unit in which it would be possible but unusual is not offered (`altitude 25000 m`: 25,000 ft is 7,620 m, above the usual 5,100 m). The bounds of each field and their sources are listed in grammar/README.md.',
   },
   source: 'field registry bounds; each field names its source (mostly common practice, no source)',
   ...valueCheck((ctx, stated, barometricMmhg, at) => {
@@ -158,12 +158,14 @@ export const impossibleValue = defineCheck({
  * field's other unit in which the same number is ordinary (within the hard and the `usual` bounds,
  * not merely possible: `vt 5 L` is not offered mL, as 5 mL is no usual tidal volume), and a fix
  * that writes that unit instead. Null when there is none, or more than one (the writer must
- * choose), or the value is a pair or had no unit written (PN204 covers bare numbers).
+ * choose), or the value is a pair or had no unit written (PN204 covers bare numbers), or the field
+ * has no usual bounds (what is usual in the other unit is then unknown, and merely possible is not
+ * enough: every field with more than one unit has them, tests/core/registry.test.ts).
  */
 function otherUnitFix(field: FieldDef, s: StatedValue, usual: Bounds | undefined): { unit: string; fix: Fix } | null {
   const unitToken = s.item.unit;
   const written = s.item.number;
-  if (!unitToken || written === null || s.unitImplied) return null;
+  if (!unitToken || written === null || s.unitImplied || usual === undefined) return null;
   const fitting = unitsWithin(field, written, s.readUnit, field.hard, usual);
   if (fitting.length !== 1) return null;
   const unit = displayUnit(fitting[0]!.id);
