@@ -44,7 +44,7 @@ import {
   type TrendsResult,
 } from '../protocol';
 import { notePathOf, ProjectConfigs, type FoundConfig } from '../node/project-config';
-import { ConfigWatcher, foldersToWatch } from './config-watch';
+import { ConfigWatcher, filesToWatch, foldersToWatch } from './config-watch';
 import { DEFAULT_CLIENT_SETTINGS, effectiveSettings, readClientSettings, settingsKey, type ClientSettings, type EffectiveSettings } from './settings';
 import { IdleCollector } from './memory';
 import { findingsToPublish, isHintRef, rangesOverlap, toCodeAction, toCompletionItem, toDiagnostic, toDocumentSymbol, toInlayHint, tooManyFindings } from './translate';
@@ -302,15 +302,17 @@ export function startServer(connection: Connection, collector: IdleCollector = n
 
   /**
    * Watches the folders outside the workspace whose project file would apply to the note (`found`
-   * is what was read there), and gives the project file that applies. A file made in a folder
-   * between the lookup and the start of its watch would go unnoticed: so when a watch starts,
-   * the folders are looked at once more.
+   * is what was read there), and the folder of the file it leads to when it is a link, and gives
+   * the project file that applies. A file made in a folder between the lookup and the start of its
+   * watch would go unnoticed: so when a watch starts, the folders are looked at once more.
    */
   function watchFoldersOf(uri: string, found: FoundConfig | null): FoundConfig | null {
     const path = notePathOf(uri);
-    if (path === null || !watcher.need(uri, foldersToWatch(path, found?.path ?? null, workspaceFolders))) return found;
+    if (path === null) return found;
+    const need = (file: FoundConfig | null) => watcher.need(uri, foldersToWatch(path, file?.path ?? null, workspaceFolders), filesToWatch(file?.path ?? null, workspaceFolders));
+    if (!need(found)) return found;
     const again = configs.forPath(path, true);
-    if (configKey(again) !== configKey(found)) watcher.need(uri, foldersToWatch(path, again?.path ?? null, workspaceFolders));
+    if (configKey(again) !== configKey(found)) need(again);
     return again;
   }
 
