@@ -270,6 +270,21 @@ describe('convertNoteUnits', () => {
     expect(convertNoteUnits(checkNote(converted), 'kPa')).toEqual([]);
   });
 
+  it('keeps a usual value usual: PaCO2 150 mmHg, the most that is usual, is 19.99 kPa, not 20.0 (150.01 mmHg, past it)', () => {
+    // Found by the conversion property test there and back (150 mmHg → 20.0 kPa, read as unusual
+    // by PN302 and so left in kPa on the way back). 1 kPa = 7.50062 mmHg, definition of the units.
+    const text = note('@ 08:00', 'abg pco2 150 mmHg', 'abg 7.10/150/80');
+    const codes = (t: string) => checkNote(t).findings.map((f) => f.code).sort();
+    const converted = applyEdits(text, convertNoteUnits(checkNote(text), 'kPa'));
+    expect(converted).toBe(note('units     gas kPa', '@ 08:00', 'abg pco2 19.99 kPa', 'abg 7.10/19.99/10.7'));
+    expect(codes(converted)).toEqual(codes(text));
+    expect(codes(converted)).not.toContain('PN302');
+    // Back in mmHg, 149.9: the number that reads back as 19.99 kPa, as written then (150 is 20.0 kPa).
+    expect(applyEdits(converted, convertNoteUnits(checkNote(converted), 'mmHg'))).toBe(note('units     gas mmHg', '@ 08:00', 'abg pco2 149.9 mmHg', 'abg 7.10/149.9/80'));
+    // The value under the cursor too.
+    expect(after(note('@ 08:00', 'abg pco2 1|50 mmHg'), 'Write pco2 in kPa: 19.99 kPa')).toBe(note('@ 08:00', 'abg pco2 19.99 kPa'));
+  });
+
   it('keeps an unusual value as read, with its unit written', () => {
     const text = note('@ 08:00', 'abg po2 800');
     expect(applyEdits(text, convertNoteUnits(checkNote(text), 'kPa'))).toBe(note('units     gas kPa', '@ 08:00', 'abg po2 800 mmHg'));
