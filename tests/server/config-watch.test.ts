@@ -312,6 +312,40 @@ describe.runIf(posix)('a project file above the workspace, over the protocol', (
     expect(cleared.diagnostics).toEqual([]);
   });
 
+  it('keeps the problems of an invalid file a nearer one now stands in for, saying that the notes open read the nearer one', async () => {
+    const far = join(root, 'far');
+    const near = join(far, 'near');
+    mkdirSync(near, { recursive: true });
+    const invalid = join(far, CONFIG);
+    const invalidUri = pathToFileURL(invalid).toString();
+    writeFileSync(invalid, '{ "hypoxaemiaBelowMmhg": 70, }\n');
+    const messages = (p: PublishDiagnosticsParams) => p.diagnostics.map((d) => (typeof d.message === 'string' ? d.message : d.message.value));
+    const problemsSaying = (count: number, text: string) => client.diagnostics(invalidUri, (p) => client.published.indexOf(p) >= count && messages(p).some((m) => m.includes(text)), 15000);
+    let count = client.published.length;
+    const uri = client.open(join(near, 'g.pneu'), NOTE);
+    // The note reads the invalid file: the defaults apply to it, and the file says so.
+    expect(threshold(await client.diagnostics(uri))).toBeNull();
+    expect(messages(await problemsSaying(count, 'uses its defaults'))).toEqual([
+      'pneumark.config.json is not valid JSON (a comma cannot come just before `}`); Pneumark uses its defaults.',
+    ]);
+    // A nearer file is made: the note reads it; the far file is still invalid, and says the notes open read the nearer one.
+    count = client.published.length;
+    writeFileSync(join(near, CONFIG), '{ "hypoxaemiaBelowMmhg": 72 }\n');
+    await diagnosticsWith(uri, count, '72');
+    expect(messages(await problemsSaying(count, 'nearer'))).toEqual([
+      'pneumark.config.json is not valid JSON (a comma cannot come just before `}`); the open notes below it read a nearer pneumark.config.json, and a note that reads this one gets Pneumark\'s defaults until it is fixed.',
+    ]);
+    // Gone again: the note reads the far file, and its problem says again that the defaults apply.
+    count = client.published.length;
+    unlinkSync(join(near, CONFIG));
+    await diagnosticsWith(uri, count, null);
+    expect(messages(await problemsSaying(count, 'uses its defaults'))).toEqual([
+      'pneumark.config.json is not valid JSON (a comma cannot come just before `}`); Pneumark uses its defaults.',
+    ]);
+    await client.connection.sendNotification('textDocument/didClose', { textDocument: { uri } });
+    unlinkSync(invalid);
+  });
+
   it('that is a link to a file elsewhere is noticed when that file is changed through its own path', async () => {
     const shared = join(root, 'shared');
     mkdirSync(shared);
