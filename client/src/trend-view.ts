@@ -7,7 +7,8 @@
  * becomes the active editor, the view shows that one. It updates when its note is analysed
  * again; when the note is closed it keeps its last trends and says so; a click on a point or a
  * timepoint's button in the table moves the editor to that timepoint. After a reload of the
- * window VS Code gives the panel back to the serializer, which reopens the note it showed.
+ * window VS Code gives the panel back to the serializer, which reopens the note it showed; the
+ * page itself keeps which lines its reader hid (its state, which VS Code keeps with the panel).
  */
 import { randomBytes } from 'node:crypto';
 import * as vscode from 'vscode';
@@ -76,12 +77,13 @@ export class TrendView implements vscode.Disposable, vscode.WebviewPanelSerializ
     }
     panel.webview.options = this.options();
     this.adopt(panel);
-    const saved = trendViewState(state);
+    // The page keeps the rest of its state (the lines hidden) itself, and reads it back once loaded.
+    const saved = trendViewState(state)?.uri;
     const active = vscode.window.activeTextEditor?.document;
-    if (saved) {
+    if (saved !== undefined) {
       let uri: vscode.Uri | null = null;
       try {
-        uri = vscode.Uri.parse(saved.uri, true);
+        uri = vscode.Uri.parse(saved, true);
       } catch {
         uri = null;
       }

@@ -23,9 +23,15 @@ export type FromWebview =
   | { readonly type: 'ready' }
   | { readonly type: 'reveal'; readonly line: number };
 
-/** What the page keeps across a reload of the window (VS Code hands it to the serializer). */
+/**
+ * What the page keeps while its panel lives and across a reload of the window (VS Code hands it
+ * to the serializer, and back to the page through `getState` when the page is loaded again, as it
+ * is each time the hidden panel is shown). `uri`: the note shown, none before the first message;
+ * `hidden`: the lines hidden with the legend's toggles.
+ */
 export interface TrendViewState {
-  readonly uri: string;
+  readonly uri?: string;
+  readonly hidden: readonly TrendSeries[];
 }
 
 const fromWebviewSchema = z.discriminatedUnion('type', [
@@ -40,12 +46,23 @@ export function fromWebview(value: unknown): FromWebview | null {
   return parsed.data.type === 'ready' ? { type: 'ready' } : { type: 'reveal', line: parsed.data.line };
 }
 
-const stateSchema = z.object({ uri: z.string().check(z.minLength(1), z.maxLength(9_999)) });
+const stateUriSchema = z.string().check(z.minLength(1), z.maxLength(9_999));
+const stateSchema = z.object({ uri: z.optional(z.unknown()), hidden: z.optional(z.unknown()) });
+const hiddenSchema = z.array(z.unknown()).check(z.maxLength(TREND_SERIES.length * 4));
 
-/** The state the serializer was given, checked: it was stored by an earlier page. */
+/**
+ * The state kept by an earlier page, checked (the serializer's and the page's own after a reload):
+ * null when it is not an object. Each part that does not check is left out on its own, so that a
+ * state kept by an older page (the note only) still reopens its note; a hidden line of a series
+ * this version does not draw is dropped.
+ */
 export function trendViewState(value: unknown): TrendViewState | null {
   const parsed = stateSchema.safeParse(value);
-  return parsed.success ? { uri: parsed.data.uri } : null;
+  if (!parsed.success) return null;
+  const uri = stateUriSchema.safeParse(parsed.data.uri);
+  const list = hiddenSchema.safeParse(parsed.data.hidden);
+  const hidden = list.success ? TREND_SERIES.filter((key) => list.data.includes(key)) : [];
+  return uri.success ? { uri: uri.data, hidden } : { hidden };
 }
 
 /**

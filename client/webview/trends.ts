@@ -5,7 +5,8 @@
  * values are drawn in the units the server gives them in (gas pressures in the note's unit, mmHg
  * or kPa). Clicking a chart moves the editor to the timepoint under the cursor; below the charts
  * a table of the same values has a button per timepoint, so the keyboard and screen readers
- * reach every timepoint too.
+ * reach every timepoint too: each says the line it goes to in its description, and beside it
+ * while it has the keyboard focus (the mouse has its tooltip).
  *
  * The chart itself (canvas, axes, cursor) is hidden from screen readers, which are pointed to the
  * table. Its legend is not uPlot's (a table inside the hidden chart, toggled by clicks only): it is
@@ -15,13 +16,14 @@
  */
 import uPlot from 'uplot';
 import type { TrendPoint, TrendSeries } from '../../server/src/protocol';
-import { toWebview, type FromWebview, type ToWebview, type TrendViewState } from './messages';
+import { toWebview, trendViewState, type FromWebview, type ToWebview, type TrendViewState } from './messages';
 import { shownEscaped, wordList } from '../../server/src/core/util/format';
 import { emptyMessage, legendName, legendText, panelLayouts, seriesDash, timepointTable, toggleAfterRedraw, toggleName, xAxis, type PanelLayout } from './panels';
 
 interface VsCodeApi {
   postMessage(message: FromWebview): void;
   setState(state: TrendViewState): void;
+  getState(): unknown;
 }
 declare function acquireVsCodeApi(): VsCodeApi;
 
@@ -110,8 +112,27 @@ function restoreFocus(f: FocusedControl | null, layouts: readonly PanelLayout[])
   (target ?? buttons[0] ?? null)?.focus();
 }
 
-/** Series the reader has hidden with the legend's toggles: still hidden after a redraw, and in another note. */
-const hiddenSeries = new Set<TrendSeries>();
+/**
+ * What the page keeps (`TrendViewState`): VS Code gives it back when the page is loaded again (the
+ * panel hidden and shown again, or the window reloaded), so the reader's choices outlive the page.
+ */
+const restored = trendViewState(vscode.getState());
+/** The note shown, kept for a reload. */
+let keptUri: string | undefined = restored?.uri;
+/** Whether this page has written its state yet (a state kept by an older page is written anew once). */
+let stateWritten = false;
+
+/**
+ * Series the reader has hidden with the legend's toggles: still hidden after a redraw, in another
+ * note, and once the page is loaded again (kept in its state).
+ */
+const hiddenSeries = new Set<TrendSeries>(restored?.hidden ?? []);
+
+function keepState(): void {
+  const hidden = [...hiddenSeries];
+  vscode.setState(keptUri === undefined ? { hidden } : { uri: keptUri, hidden });
+  stateWritten = true;
+}
 
 function span(className: string, text: string): HTMLSpanElement {
   const el = document.createElement('span');
@@ -160,6 +181,7 @@ function panelLegend(panel: PanelLayout, chart: uPlot, lineWidth: number, hours:
       if (show) hiddenSeries.delete(s.key);
       else hiddenSeries.add(s.key);
       shown(show);
+      keepState();
       chart.setSeries(position + 1, { show });
     });
     item.append(button, value);
@@ -334,7 +356,13 @@ function table(list: readonly TrendPoint[]): HTMLElement {
     button.title = `Go to line ${row.line + 1}`;
     button.dataset.index = String(first + i);
     button.addEventListener('click', () => reveal(row.line));
-    th.append(button);
+    // What the button does, beyond the tooltip that only a mouse shows: its accessible description
+    // (read by screen readers after its name), and shown beside it while it has the keyboard focus.
+    const does = span('go-line', `Go to line ${row.line + 1}`);
+    does.id = `go-line-${first + i}`;
+    does.setAttribute('aria-hidden', 'true');
+    button.setAttribute('aria-describedby', does.id);
+    th.append(button, does);
     tr.append(th);
     for (const cell of row.cells) {
       const td = document.createElement('td');
@@ -419,7 +447,10 @@ window.addEventListener('message', (event: MessageEvent<unknown>) => {
   received = true;
   // Kept by VS Code across a reload of the window, for the serializer to reopen this note.
   const uri = m.type === 'error' ? undefined : m.uri;
-  if (uri !== undefined) vscode.setState({ uri });
+  if (uri !== undefined && (uri !== keptUri || !stateWritten)) {
+    keptUri = uri;
+    keepState();
+  }
   if (latest === null) window.setTimeout(drawLatest, 0);
   latest = m;
 });

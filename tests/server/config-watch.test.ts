@@ -3,14 +3,14 @@
 // again on open and save where a folder cannot be watched, and analyses a note once per change
 // however many times the change is reported. Unit tests of the pieces, then protocol-level tests
 // of the bundled server over stdio.
-import { chmodSync, copyFileSync, mkdirSync, mkdtempSync, readFileSync, readdirSync, readlinkSync, renameSync, rmSync, statSync, unlinkSync, writeFileSync } from 'node:fs';
+import { chmodSync, copyFileSync, mkdirSync, mkdtempSync, readFileSync, readdirSync, readlinkSync, realpathSync, renameSync, rmSync, statSync, symlinkSync, unlinkSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { join, resolve } from 'node:path';
+import { basename, dirname, join, resolve } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { afterAll, afterEach, beforeAll, describe, expect, it, vi } from 'vitest';
 import type { PublishDiagnosticsParams } from 'vscode-languageserver-protocol';
 import { ProjectConfigs } from '../../server/src/node/project-config';
-import { ConfigWatcher, foldersToWatch, type Watch, type WatchHandle } from '../../server/src/server/config-watch';
+import { ConfigWatcher, filesToWatch, foldersToWatch, type Watch, type WatchHandle } from '../../server/src/server/config-watch';
 import { workspacePaths } from '../../server/src/server/server';
 import { startClient, type LspClient } from './lsp-client';
 
@@ -50,6 +50,35 @@ describe.runIf(posix)('the folders watched for a note', () => {
     expect(workspacePaths([{ uri: 'file:///a/ws/', name: 'ws' }, { uri: 'vscode-vfs://github/x', name: 'x' }], null)).toEqual(['/a/ws']);
     expect(workspacePaths(null, 'file:///a/root')).toEqual(['/a/root']);
     expect(workspacePaths(null, null)).toEqual([]);
+  });
+});
+
+describe.runIf(posix)('the file a linked project file leads to', () => {
+  it('is watched too, unless the editor reports it (a file of the project file\'s name in the workspace)', () => {
+    const root = tempRoot();
+    try {
+      const ws = join(root, 'ws');
+      const shared = join(root, 'shared');
+      for (const dir of [ws, shared, join(ws, 'team')]) mkdirSync(dir);
+      writeFileSync(join(shared, 'team.json'), '{}\n');
+      writeFileSync(join(ws, 'team', CONFIG), '{}\n');
+      symlinkSync(join(shared, 'team.json'), join(root, CONFIG));
+      symlinkSync(join(ws, 'team', CONFIG), join(ws, CONFIG));
+      // Through every link on the way.
+      symlinkSync(join(root, CONFIG), join(shared, 'via.json'));
+      const real = (p: string) => join(realpathSync(dirname(p)), basename(p));
+      expect(filesToWatch(join(root, CONFIG), [ws])).toEqual([real(join(shared, 'team.json'))]);
+      expect(filesToWatch(join(shared, 'via.json'), [ws])).toEqual([real(join(shared, 'team.json'))]);
+      expect(filesToWatch(join(ws, CONFIG), [ws])).toEqual([]);
+      expect(filesToWatch(join(ws, CONFIG), [])).toEqual([real(join(ws, 'team', CONFIG))]);
+      // Not a link, a link to nothing, no file.
+      expect(filesToWatch(join(shared, 'team.json'), [])).toEqual([]);
+      symlinkSync(join(shared, 'gone.json'), join(shared, 'dangling.json'));
+      expect(filesToWatch(join(shared, 'dangling.json'), [])).toEqual([]);
+      expect(filesToWatch(null, [])).toEqual([]);
+    } finally {
+      rmSync(root, { recursive: true, force: true });
+    }
   });
 });
 
@@ -144,6 +173,38 @@ describe('the config watcher', () => {
     fake.fail.clear();
     expect(watcher.need('a', ['/full', '/ok'])).toBe(true);
     expect(watcher.unwatched()).toEqual([]);
+    watcher.close();
+  });
+
+  it('watches the folder of the file a linked project file leads to, for that file only, and lets it go with the rest', () => {
+    vi.useFakeTimers();
+    const fake = fakeWatch();
+    let changes = 0;
+    const watcher = new ConfigWatcher(() => { changes++; }, { watch: fake.watch, identity: () => 1, debounceMs: 10 });
+    expect(watcher.need('a', ['/x/a', '/x'], ['/shared/team.json'])).toBe(true);
+    expect([...fake.open.keys()].sort()).toEqual(['/shared', '/x', '/x/a']);
+    const shared = fake.open.get('/shared')!.listener;
+    shared('change', 'other.json');
+    shared('rename', CONFIG);
+    vi.advanceTimersByTime(50);
+    expect(changes).toBe(0);
+    shared('change', 'team.json');
+    vi.advanceTimersByTime(10);
+    expect(changes).toBe(1);
+    // Another note reads the project file of that folder: events about each file count, for as long as one note reads it.
+    watcher.need('b', ['/shared']);
+    shared('rename', CONFIG);
+    vi.advanceTimersByTime(10);
+    expect(changes).toBe(2);
+    watcher.release('b');
+    shared('rename', CONFIG);
+    vi.advanceTimersByTime(10);
+    expect(changes).toBe(2);
+    // The link now leads elsewhere: the old folder is let go; closing the note lets every one go.
+    watcher.need('a', ['/x/a', '/x'], ['/team/settings.json']);
+    expect([...fake.open.keys()].sort()).toEqual(['/team', '/x', '/x/a']);
+    watcher.release('a');
+    expect(fake.open.size).toBe(0);
     watcher.close();
   });
 
@@ -251,6 +312,64 @@ describe.runIf(posix)('a project file above the workspace, over the protocol', (
     expect(cleared.diagnostics).toEqual([]);
   });
 
+  it('keeps the problems of an invalid file a nearer one now stands in for, saying that the notes open read the nearer one', async () => {
+    const far = join(root, 'far');
+    const near = join(far, 'near');
+    mkdirSync(near, { recursive: true });
+    const invalid = join(far, CONFIG);
+    const invalidUri = pathToFileURL(invalid).toString();
+    writeFileSync(invalid, '{ "hypoxaemiaBelowMmhg": 70, }\n');
+    const messages = (p: PublishDiagnosticsParams) => p.diagnostics.map((d) => (typeof d.message === 'string' ? d.message : d.message.value));
+    const problemsSaying = (count: number, text: string) => client.diagnostics(invalidUri, (p) => client.published.indexOf(p) >= count && messages(p).some((m) => m.includes(text)), 15000);
+    let count = client.published.length;
+    const uri = client.open(join(near, 'g.pneu'), NOTE);
+    // The note reads the invalid file: the defaults apply to it, and the file says so.
+    expect(threshold(await client.diagnostics(uri))).toBeNull();
+    expect(messages(await problemsSaying(count, 'uses its defaults'))).toEqual([
+      'pneumark.config.json is not valid JSON (a comma cannot come just before `}`); Pneumark uses its defaults.',
+    ]);
+    // A nearer file is made: the note reads it; the far file is still invalid, and says the notes open read the nearer one.
+    count = client.published.length;
+    writeFileSync(join(near, CONFIG), '{ "hypoxaemiaBelowMmhg": 72 }\n');
+    await diagnosticsWith(uri, count, '72');
+    expect(messages(await problemsSaying(count, 'nearer'))).toEqual([
+      'pneumark.config.json is not valid JSON (a comma cannot come just before `}`); the open notes below it read a nearer pneumark.config.json, and a note that reads this one gets Pneumark\'s defaults until it is fixed.',
+    ]);
+    // Gone again: the note reads the far file, and its problem says again that the defaults apply.
+    count = client.published.length;
+    unlinkSync(join(near, CONFIG));
+    await diagnosticsWith(uri, count, null);
+    expect(messages(await problemsSaying(count, 'uses its defaults'))).toEqual([
+      'pneumark.config.json is not valid JSON (a comma cannot come just before `}`); Pneumark uses its defaults.',
+    ]);
+    await client.connection.sendNotification('textDocument/didClose', { textDocument: { uri } });
+    unlinkSync(invalid);
+  });
+
+  it('that is a link to a file elsewhere is noticed when that file is changed through its own path', async () => {
+    const shared = join(root, 'shared');
+    mkdirSync(shared);
+    const target = join(shared, 'team.json');
+    writeFileSync(target, '{ "hypoxaemiaBelowMmhg": 70 }\n');
+    const link = join(root, CONFIG);
+    symlinkSync(target, link);
+    try {
+      const uri = client.open(join(ws, 'f.pneu'), NOTE);
+      expect(threshold(await client.diagnostics(uri))).toBe('70');
+      let count = client.published.length;
+      writeFileSync(realpathSync(target), '{ "hypoxaemiaBelowMmhg": 75 }\n');
+      await diagnosticsWith(uri, count, '75');
+      // A safe save of the shared file: a new file renamed over it.
+      count = client.published.length;
+      writeFileSync(join(shared, '.team.json.tmp'), '{ "hypoxaemiaBelowMmhg": 80 }\n');
+      renameSync(join(shared, '.team.json.tmp'), target);
+      await diagnosticsWith(uri, count, '80');
+      await client.connection.sendNotification('textDocument/didClose', { textDocument: { uri } });
+    } finally {
+      unlinkSync(link);
+    }
+  });
+
   it('analyses a note once for a change both the client and a watch report, inside the workspace or not', async () => {
     const inside = join(ws, 'inside');
     const outside = join(root, 'outside');
@@ -342,6 +461,28 @@ describe.runIf(process.platform === 'linux')('the watches the server holds (Linu
       const count = client.published.length;
       await client.connection.sendNotification('textDocument/didClose', { textDocument: { uri } });
       // The server clears a closed note's diagnostics after letting its watches go.
+      await client.diagnostics(uri, (p) => client.published.indexOf(p) >= count);
+      expect(watchedInodes(pid)).toEqual([]);
+    } finally {
+      await client.close();
+      rmSync(root, { recursive: true, force: true });
+    }
+  });
+  it('include the folder of the file a linked project file leads to, let go with the rest when the note is closed', async () => {
+    const root = tempRoot();
+    const ws = join(root, 'ws');
+    const shared = join(root, 'shared');
+    for (const dir of [ws, shared]) mkdirSync(dir);
+    writeFileSync(join(shared, 'team.json'), '{ "hypoxaemiaBelowMmhg": 70 }\n');
+    symlinkSync(join(shared, 'team.json'), join(root, CONFIG));
+    const client = await startClient({}, { workspaceFolders: [ws] });
+    try {
+      const pid = client.process.pid!;
+      const uri = client.open(join(ws, 'a.pneu'), NOTE);
+      expect(threshold(await client.diagnostics(uri))).toBe('70');
+      expect(watchedInodes(pid)).toEqual([statSync(root).ino, statSync(shared).ino].sort((a, b) => a - b));
+      const count = client.published.length;
+      await client.connection.sendNotification('textDocument/didClose', { textDocument: { uri } });
       await client.diagnostics(uri, (p) => client.published.indexOf(p) >= count);
       expect(watchedInodes(pid)).toEqual([]);
     } finally {

@@ -48,7 +48,7 @@ describe.skipIf(!hasChromium)('the trend page in a browser', () => {
     for (const bad of [null, 'trends', { type: 'trends' }, { type: 'trends', points: 'x', note: 3 }, { ...trends([]), points: [{ label: 1, values: null }] },
       { ...trends([]), uri: 'file:///other.pneu', points: [{ ...point(0, 'x', 0), values: { pao2: { value: 1, unit: 'furlong' } } }] }, { type: 'error' }, { type: 'run', command: 'x' }]) await t.send(bad);
     expect(await t.page.locator('button.go').allInnerTexts()).toEqual(['first']);
-    expect(await t.state()).toEqual({ uri: 'file:///work/icu.pneu' });
+    expect(await t.state()).toEqual({ uri: 'file:///work/icu.pneu', hidden: [] });
     expect(t.problems).toEqual([]);
     await t.close();
   });
@@ -200,6 +200,66 @@ describe.skipIf(!hasChromium)('the trend page in a browser', () => {
     expect(t.problems).toEqual([]);
     await t.close();
   }, 60_000);
+
+  it('keeps the lines hidden with the legend when the page is loaded again (the panel shown again, or the window reloaded)', async () => {
+    const points = Array.from({ length: 3 }, (_, i) => point(i, `tp ${i + 1}`, i * 60));
+    const first = await openTrendPage();
+    await first.send(trends(points));
+    await first.page.getByRole('button', { name: 'Show the pH line' }).click();
+    expect(await first.state()).toEqual({ uri: 'file:///work/icu.pneu', hidden: ['ph'] });
+    const kept = await first.state();
+    await first.close();
+    // VS Code loads the page again with the state the first one kept: the pH line is still hidden,
+    // before and after the note's trends come again, and the state still says so.
+    const again = await openTrendPage({ state: kept });
+    expect(await again.state()).toEqual(kept);
+    await again.send(trends(points));
+    expect(await again.page.getByRole('button', { name: 'Show the pH line' }).getAttribute('aria-pressed')).toBe('false');
+    expect(await again.page.getByRole('button', { name: 'Show the PaO2 line' }).getAttribute('aria-pressed')).toBe('true');
+    expect(await again.page.locator('section.panel .legend .item.off .label').allInnerTexts()).toEqual(['pH']);
+    // Shown again there, it is shown after the next load too; another note keeps the choice.
+    await again.page.getByRole('button', { name: 'Show the pH line' }).click();
+    await again.page.getByRole('button', { name: 'Show the PaO2 line' }).click();
+    await again.send(trends(points, 'other.pneu'));
+    expect(await again.state()).toEqual({ uri: 'file:///work/other.pneu', hidden: ['pao2'] });
+    expect(again.problems).toEqual([]);
+    await again.close();
+    // A state kept by an older page (the note only), or of another shape, hides nothing.
+    for (const state of [{ uri: 'file:///work/icu.pneu' }, { uri: 'file:///work/icu.pneu', hidden: 'ph' }, 'ph']) {
+      const older = await openTrendPage({ state });
+      await older.send(trends(points));
+      expect(await older.page.locator('section.panel .legend .item.off').count(), JSON.stringify(state)).toBe(0);
+      expect(await older.state()).toEqual({ uri: 'file:///work/icu.pneu', hidden: [] });
+      expect(older.problems).toEqual([]);
+      await older.close();
+    }
+  }, 60_000);
+
+  it('says where each timepoint\'s button goes to the keyboard and screen readers, not in a tooltip only', async () => {
+    const t = await openTrendPage();
+    await t.send(trends(Array.from({ length: 3 }, (_, i) => point(i, `tp ${i + 1}`, i * 60))));
+    // Its accessible description, as Chromium gives it to screen readers (the name stays the label).
+    const cdp = await t.page.context().newCDPSession(t.page);
+    const { nodes } = await cdp.send('Accessibility.getFullAXTree') as { nodes: { role?: { value: string }; name?: { value: string }; description?: { value: string } }[] };
+    const described = nodes.filter((n) => n.role?.value === 'button' && /^tp \d$/.test(n.name?.value ?? '')).map((n) => [n.name?.value, n.description?.value]);
+    expect(described).toEqual([['tp 1', 'Go to line 1'], ['tp 2', 'Go to line 3'], ['tp 3', 'Go to line 5']]);
+    // Not read again as text of the table; shown beside the button only while it has the keyboard focus.
+    const table = t.page.getByRole('table', { name: /moves the editor/ });
+    expect(await table.ariaSnapshot()).not.toContain('Go to line');
+    const line = (n: number) => t.page.locator('section.values .go-line').nth(n);
+    expect(await line(1).isVisible()).toBe(false);
+    await t.page.locator('button.go').nth(0).focus();
+    await t.page.keyboard.press('Tab');
+    expect(await t.page.evaluate(`document.activeElement.textContent`)).toBe('tp 2');
+    expect(await line(1).isVisible()).toBe(true);
+    expect(await line(1).innerText()).toBe('Go to line 3');
+    expect(await line(0).isVisible()).toBe(false);
+    // Pressed from the keyboard, it goes there.
+    await t.page.keyboard.press('Enter');
+    expect((await t.posted()).at(-1)).toEqual({ type: 'reveal', line: 2 });
+    expect(t.problems).toEqual([]);
+    await t.close();
+  });
 
   it('lets the keyboard scroll the table sideways when it is wider than the view, and only then', async () => {
     const all = (i: number): TrendPoint => ({ timepoint: i + 1, label: `tp ${i + 1}`, line: i, minutes: i * 60, carried: [], values: {

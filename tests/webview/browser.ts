@@ -51,7 +51,11 @@ export async function shutdown(): Promise<void> {
   browser = null;
 }
 
-export async function openTrendPage(options: { width?: number; initScript?: string } = {}): Promise<TrendPage> {
+/**
+ * `state`: what VS Code gives back to a page loaded again (the panel shown again after being
+ * hidden, or the window reloaded): the state an earlier page kept, returned by `getState`.
+ */
+export async function openTrendPage(options: { width?: number; initScript?: string; state?: unknown } = {}): Promise<TrendPage> {
   if (!browser) throw new Error('launch() first');
   const context = await browser.newContext({ viewport: { width: options.width ?? 900, height: 800 } });
   const page = await context.newPage();
@@ -77,7 +81,7 @@ export async function openTrendPage(options: { width?: number; initScript?: stri
   // The stand-in for VS Code's API, and a record of CSP violations. Init scripts are not subject to
   // the page's policy, as VS Code's own bootstrap is not.
   await page.addInitScript(`
-    window.__posted = []; window.__state = undefined; window.__violations = [];
+    window.__posted = []; window.__state = ${JSON.stringify(options.state ?? null)} ?? undefined; window.__violations = [];
     window.acquireVsCodeApi = () => ({ postMessage: (m) => window.__posted.push(JSON.parse(JSON.stringify(m))), setState: (s) => { window.__state = s; }, getState: () => window.__state });
     document.addEventListener('securitypolicyviolation', (e) => window.__violations.push(e.violatedDirective + ' ' + e.blockedURI));
     ${options.initScript ?? ''}

@@ -36,9 +36,15 @@ describe('messages from the page', () => {
     for (const bad of [null, 'ready', { type: 'reveal', line: -1 }, { type: 'reveal', line: 1.5 }, { type: 'reveal', line: '4' }, { type: 'reveal', line: Number.NaN }, { type: 'reveal', line: 2 ** 53 }, { type: 'run', command: 'x' }]) expect(fromWebview(bad)).toBeNull();
   });
 
-  it('and so is the state restored after a reload', () => {
-    expect(trendViewState({ uri: 'file:///n/a.pneu' })).toEqual({ uri: 'file:///n/a.pneu' });
-    for (const bad of [undefined, null, {}, { uri: 4 }, { uri: '' }]) expect(trendViewState(bad)).toBeNull();
+  it('and so is the state restored after a reload: each part on its own, a state of an older page (the note only) still taken', () => {
+    expect(trendViewState({ uri: 'file:///n/a.pneu' })).toEqual({ uri: 'file:///n/a.pneu', hidden: [] });
+    expect(trendViewState({ uri: 'file:///n/a.pneu', hidden: ['ph', 'pao2'] })).toEqual({ uri: 'file:///n/a.pneu', hidden: ['pao2', 'ph'] });
+    // Lines hidden before any note was shown; a series this version does not draw, or a list of another shape, is dropped.
+    expect(trendViewState({ hidden: ['pao2', 'furlongs', 3] })).toEqual({ hidden: ['pao2'] });
+    expect(trendViewState({ uri: 'file:///n/a.pneu', hidden: 'pao2' })).toEqual({ uri: 'file:///n/a.pneu', hidden: [] });
+    expect(trendViewState({ uri: 'file:///n/a.pneu', hidden: Array.from({ length: 1000 }, () => 'pao2') })).toEqual({ uri: 'file:///n/a.pneu', hidden: [] });
+    for (const bad of [{}, { uri: 4 }, { uri: '' }]) expect(trendViewState(bad)).toEqual({ hidden: [] });
+    for (const bad of [undefined, null, 'file:///n/a.pneu', ['pao2']]) expect(trendViewState(bad)).toBeNull();
   });
 });
 

@@ -85,6 +85,11 @@ export class ProjectConfigs {
     return found;
   }
 
+  /** What the project file at `path` says (read again only when it changed); null when there is no file. */
+  file(path: string): ParsedConfig | null {
+    return this.read(path);
+  }
+
   /** Forgets cached files (after a change notification). */
   invalidate(): void {
     this.cache.clear();

@@ -13,8 +13,12 @@
  * removed or moved) is logged once and counted as unwatched (`watchesAll` is false for the notes
  * that need it): the server looks at those notes' project files again when a note is opened or
  * saved, and tries to watch the folder again the next time a note needs it.
+ *
+ * A project file may be a symbolic link to a shared file elsewhere: a change of that file makes no
+ * event in the link's folder, so the folder of the file it leads to (`linkTargetOf`) is watched
+ * too, for events about that file only, with the note's other folders and let go with them.
  */
-import { statSync, watch } from 'node:fs';
+import { lstatSync, realpathSync, statSync, watch } from 'node:fs';
 import { basename, dirname, sep } from 'node:path';
 import { CONFIG_FILE_NAME } from '../core/config';
 import { LOOKUP_DEPTH } from '../node/project-config';
@@ -49,6 +53,31 @@ export function foldersToWatch(notePath: string, found: string | null, workspace
   return dirs;
 }
 
+/**
+ * The file a project file that is a symbolic link leads to (through every link on the way): a
+ * change of it changes what the note reads, and makes no event in the link's folder. Null when
+ * the file is not a link, or leads to nothing.
+ */
+export function linkTargetOf(configPath: string | null): string | null {
+  if (configPath === null) return null;
+  try {
+    return lstatSync(configPath).isSymbolicLink() ? realpathSync.native(configPath) : null;
+  } catch {
+    return null;
+  }
+}
+
+/**
+ * The files other than project files to watch for a note whose project file is `found`: the file
+ * it leads to when it is a link, unless the editor reports changes of that file itself (a file of
+ * the project file's name in a workspace folder).
+ */
+export function filesToWatch(found: string | null, workspaceFolders: readonly string[]): string[] {
+  const target = linkTargetOf(found);
+  if (target === null) return [];
+  return basename(target) === CONFIG_FILE_NAME && insideFolders(dirname(target), workspaceFolders) ? [] : [target];
+}
+
 /** What the watcher needs of `fs.watch` (replaced in tests). */
 export interface WatchHandle {
   close(): void;
@@ -72,7 +101,8 @@ export interface ConfigWatcherOptions {
 const GONE = 'the folder was removed or moved';
 
 interface Watched {
-  readonly owners: Set<string>;
+  /** Each note that needs the folder, with the names of the files there it reads. */
+  readonly owners: Map<string, ReadonlySet<string>>;
   handle: WatchHandle | null;
   identity: number | null;
 }
@@ -109,23 +139,32 @@ export class ConfigWatcher {
   }
 
   /**
-   * Sets the folders `owner` (a note) needs watched, in place of those it needed before. True when
-   * a watch started: what was read in that folder before it may have changed since.
+   * Sets the folders `owner` (a note) needs watched for their project file, and the other files it
+   * reads (`files`: where its project file, a link, leads), in place of those it needed before.
+   * True when a watch started: what was read in that folder before it may have changed since.
    */
-  need(owner: string, dirs: readonly string[]): boolean {
+  need(owner: string, dirs: readonly string[], files: readonly string[] = []): boolean {
     const before = this.owned.get(owner) ?? [];
+    const names = new Map<string, Set<string>>();
+    const add = (dir: string, name: string) => {
+      const list = names.get(dir);
+      if (list) list.add(name);
+      else names.set(dir, new Set([name]));
+    };
+    for (const dir of dirs) add(dir, CONFIG_FILE_NAME);
+    for (const file of files) add(dirname(file), basename(file));
     let started = false;
-    for (const dir of dirs) {
+    for (const [dir, read] of names) {
       let watched = this.dirs.get(dir);
       if (!watched) {
-        watched = { owners: new Set(), handle: null, identity: null };
+        watched = { owners: new Map(), handle: null, identity: null };
         this.dirs.set(dir, watched);
       }
-      watched.owners.add(owner);
+      watched.owners.set(owner, read);
       if (!watched.handle) started = this.start(dir, watched) || started;
     }
-    for (const dir of before) if (!dirs.includes(dir)) this.drop(owner, dir);
-    if (dirs.length > 0) this.owned.set(owner, dirs);
+    for (const dir of before) if (!names.has(dir)) this.drop(owner, dir);
+    if (names.size > 0) this.owned.set(owner, [...names.keys()]);
     else this.owned.delete(owner);
     return started;
   }
@@ -175,7 +214,7 @@ export class ConfigWatcher {
   }
 
   private heard(dir: string, handle: WatchHandle, filename: string | null): void {
-    if (filename === null || filename === CONFIG_FILE_NAME) {
+    if (filename === null || this.reads(dir, filename)) {
       this.soon();
       return;
     }
@@ -184,6 +223,14 @@ export class ConfigWatcher {
       const now = this.identity(dir);
       if (now === null || now !== this.dirs.get(dir)?.identity) this.lost(dir, handle, GONE);
     }
+  }
+
+  /** Whether some note reads the file `name` in `dir`. */
+  private reads(dir: string, name: string): boolean {
+    const owners = this.dirs.get(dir)?.owners;
+    if (!owners) return false;
+    for (const read of owners.values()) if (read.has(name)) return true;
+    return false;
   }
 
   /** A watch that has ended: the notes that need it fall back, and what they read is looked at again. */

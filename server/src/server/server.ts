@@ -6,7 +6,7 @@
  * and is logged, and the server goes on.
  */
 import { existsSync } from 'node:fs';
-import { join, resolve } from 'node:path';
+import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import {
   DidChangeConfigurationNotification,
@@ -45,7 +45,8 @@ import {
   type TrendsResult,
 } from '../protocol';
 import { notePathOf, ProjectConfigs, type FoundConfig } from '../node/project-config';
-import { ConfigWatcher, foldersToWatch } from './config-watch';
+import { ConfigWatcher, filesToWatch, foldersToWatch, insideFolders } from './config-watch';
+import { supersededMessage } from './config-problems';
 import { DEFAULT_CLIENT_SETTINGS, effectiveSettings, readClientSettings, settingsKey, type ClientSettings, type EffectiveSettings } from './settings';
 import { IdleCollector } from './memory';
 import { findingsToPublish, isHintRef, rangesOverlap, toCodeAction, toCompletionItem, toDiagnostic, toDocumentSymbol, toInlayHint, tooManyFindings } from './translate';
@@ -278,15 +279,43 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     return effectiveSettings(clientSettingsOf(uri), found?.config ?? null);
   }
 
-  function publishConfigProblems(path: string | null, problems: readonly { message: string; range: Diagnostic['range'] }[]): void {
+  /**
+   * Publishes the problems of a project file. `superseded`: no open note reads the file, and open
+   * notes below it read a nearer one (see config-problems.ts).
+   */
+  function publishConfigProblems(path: string | null, problems: readonly { message: string; range: Diagnostic['range'] }[], superseded = false): void {
     if (!path) return;
     const uri = pathToFileURL(path).toString();
     // Sent when they change, not with every request about a note below the file.
-    const diagnostics = problems.map((p) => ({ range: p.range, message: p.message, severity: 1 as const, source: 'pneumark', code: 'config' }));
+    const diagnostics = problems.map((p) => ({ range: p.range, message: superseded ? supersededMessage(p.message) : p.message, severity: 1 as const, source: 'pneumark', code: 'config' }));
     const key = JSON.stringify(diagnostics);
     if (configDiagnostics.get(uri) === key || (problems.length === 0 && !configDiagnostics.has(uri))) return;
     configDiagnostics.set(uri, key);
     void connection.sendDiagnostics({ uri, diagnostics });
+  }
+
+  /**
+   * Says the problems of each project file that no open note reads any more, while open notes below
+   * it read a nearer one, of those notes (`settingsFor` publishes them as they are for a file a note
+   * reads). A file with no open note below it keeps what it said last.
+   */
+  function refreshSupersededConfigs(): void {
+    if (configDiagnostics.size === 0) return;
+    const read = new Set<string>();
+    const noteFolders: string[] = [];
+    for (const uri of notes.keys()) {
+      const found = configs.forNote(uri);
+      if (found) read.add(found.path);
+      const path = notePathOf(uri);
+      if (path !== null) noteFolders.push(dirname(path));
+    }
+    for (const [uri, sent] of configDiagnostics) {
+      if (sent === '[]') continue;
+      const path = fileURLToPath(uri);
+      if (read.has(path) || !noteFolders.some((dir) => insideFolders(dir, [dirname(path)]))) continue;
+      const config = configs.file(path);
+      if (config) publishConfigProblems(path, config.problems, true);
+    }
   }
 
   function stateFor(doc: TextDocument): NoteState {
@@ -315,15 +344,18 @@ export function startServer(connection: Connection, collector: IdleCollector = n
 
   /**
    * Watches the folders outside the workspace whose project file would apply to the note (`found`
-   * is what was read there), and gives the project file that applies. A file made in a folder
-   * between the lookup and the start of its watch would go unnoticed: so when a watch starts,
-   * the folders are looked at once more.
+   * is what was read there), and the folder of the file it leads to when it is a link, and gives
+   * the project file that applies. A file made in a folder between the lookup and the start of its
+   * watch would go unnoticed: so when a watch starts, the folders are looked at once more.
    */
   function watchFoldersOf(uri: string, found: FoundConfig | null): FoundConfig | null {
     const path = notePathOf(uri);
-    if (path === null || !watcher.need(uri, foldersToWatch(path, found?.path ?? null, clientWatchedFolders()))) return found;
+    if (path === null) return found;
+    const watched = clientWatchedFolders();
+    const need = (file: FoundConfig | null) => watcher.need(uri, foldersToWatch(path, file?.path ?? null, watched), filesToWatch(file?.path ?? null, watched));
+    if (!need(found)) return found;
     const again = configs.forPath(path, true);
-    if (configKey(again) !== configKey(found)) watcher.need(uri, foldersToWatch(path, again?.path ?? null, clientWatchedFolders()));
+    if (configKey(again) !== configKey(found)) need(again);
     return again;
   }
 
@@ -354,6 +386,7 @@ export function startServer(connection: Connection, collector: IdleCollector = n
       changed = true;
       schedule(uri, true);
     }
+    refreshSupersededConfigs();
     if (changed) refreshHints();
   }
 
@@ -501,6 +534,7 @@ export function startServer(connection: Connection, collector: IdleCollector = n
         stateFor(e.document);
         watchFoldersOf(e.document.uri, found);
         recheckUnwatched(e.document.uri);
+        refreshSupersededConfigs();
       })(undefined);
       schedule(e.document.uri, true);
     });
@@ -523,6 +557,7 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     clientSettings.delete(e.document.uri);
     watcher.release(e.document.uri);
     void connection.sendDiagnostics({ uri: e.document.uri, diagnostics: [] });
+    guard('close', undefined, refreshSupersededConfigs)(undefined);
   });
 
   /**

@@ -10,7 +10,7 @@
 import type { NoteResult } from '../check-note';
 import type { StatedValue } from '../analysis/model';
 import { displayUnit } from '../analysis/read-value';
-import type { FieldDef } from '../fields/registry';
+import type { Bounds, FieldDef } from '../fields/registry';
 import { convert, unitById, unitsForSpelling, type UnitDef } from '../fields/units';
 import { decimalsFor } from '../present';
 import type { ItemNode, LineNode, SectionLine } from '../syntax/tree';
@@ -41,7 +41,8 @@ export function otherUnit(s: StatedValue): string | null {
  * more where those would not convert back to the number as the note wrote it: 9.0 kPa is written
  * 67.5 mmHg, not 68 (which is 9.1 kPa), and 28.5 % is 0.285, not 0.29 (29 %). So converting a
  * value there and back gives the number written, and a possible value is not rounded past what
- * is possible.
+ * is possible, nor a usual one past what is usual (PaCO2 150 mmHg, the most that is usual, is
+ * 19.99 kPa: 20.0 kPa is 150.01 mmHg, which PN302 would call unusual).
  */
 export function numberIn(s: StatedValue, field: FieldDef, to: string): string | null {
   const canonical = unitById(s.unit ?? '');
@@ -53,16 +54,20 @@ export function numberIn(s: StatedValue, field: FieldDef, to: string): string | 
   const write = (decimals: number) => (to === '%' ? formatShort(v, decimals) : formatNumber(v, decimals));
   const written = writtenNumber(s);
   const from = s.readUnit ? unitById(s.readUnit) : undefined;
-  // A possible value stays possible (200 mmHg, the most an EtCO2 can be, is 26.66 kPa: 26.7 kPa is over it).
+  // A possible value stays possible (200 mmHg, the most an EtCO2 can be, is 26.66 kPa: 26.7 kPa is
+  // over it), and a usual one usual.
   const possible = within(s.value, field.hard);
+  const ordinary = possible && within(s.value, field.soft);
   if (written && from && from.id !== target.id) {
     for (let decimals = usual; decimals <= usual + 2; decimals++) {
       // The nearest number, or where that is past a bound the value is within, the one on its side.
-      for (const text of [write(decimals), towardBound(v, decimals, target, canonical, field)]) {
+      const candidates = [write(decimals), towardBound(v, decimals, target, canonical, field.hard), ordinary ? towardBound(v, decimals, target, canonical, field.soft) : null];
+      for (const text of candidates) {
         if (text === null) continue;
         const back = convert(Number(text), target, from);
         const read = convert(Number(text), target, canonical);
-        if (back !== null && formatNumber(back, written.decimals) === formatNumber(written.value, written.decimals) && (!possible || (read !== null && within(read, field.hard)))) return text;
+        if (back === null || formatNumber(back, written.decimals) !== formatNumber(written.value, written.decimals)) continue;
+        if ((!possible || (read !== null && within(read, field.hard))) && (!ordinary || (read !== null && within(read, field.soft)))) return text;
       }
     }
   }
@@ -70,16 +75,17 @@ export function numberIn(s: StatedValue, field: FieldDef, to: string): string | 
 }
 
 /**
- * `v` (in `to`) rounded with `decimals` toward the inside of the field's bounds where rounding to
- * the nearest would cross one (PaO2 10 mmHg, its least, is 1.34 kPa rather than 1.3, 9.75 mmHg).
+ * `v` (in `to`) rounded with `decimals` toward the inside of `bounds` (a field's possible or usual
+ * range) where rounding to the nearest would cross one (PaO2 10 mmHg, its least, is 1.34 kPa
+ * rather than 1.3, 9.75 mmHg).
  */
-function towardBound(v: number, decimals: number, to: UnitDef, canonical: UnitDef, field: FieldDef): string | null {
+function towardBound(v: number, decimals: number, to: UnitDef, canonical: UnitDef, bounds: Bounds | undefined): string | null {
   const factor = 10 ** decimals;
   const nearest = Math.round(v * factor) / factor;
   const read = convert(nearest, to, canonical);
-  if (read === null || !field.hard) return null;
-  if (field.hard.min !== undefined && read < field.hard.min) return formatNumber(Math.ceil(v * factor) / factor, decimals);
-  if (field.hard.max !== undefined && read > field.hard.max) return formatNumber(Math.floor(v * factor) / factor, decimals);
+  if (read === null || !bounds) return null;
+  if (bounds.min !== undefined && read < bounds.min) return formatNumber(Math.ceil(v * factor) / factor, decimals);
+  if (bounds.max !== undefined && read > bounds.max) return formatNumber(Math.floor(v * factor) / factor, decimals);
   return null;
 }
 
