@@ -270,19 +270,20 @@ describe('convertNoteUnits', () => {
     expect(convertNoteUnits(checkNote(converted), 'kPa')).toEqual([]);
   });
 
-  it('keeps a usual value usual: PaCO2 150 mmHg, the most that is usual, is 19.99 kPa, not 20.0 (150.01 mmHg, past it)', () => {
-    // Found by the conversion property test there and back (150 mmHg → 20.0 kPa, read as unusual
-    // by PN302 and so left in kPa on the way back). 1 kPa = 7.50062 mmHg, definition of the units.
+  it('keeps a usual value usual: PaCO2 150 mmHg, the most that is usual, is 20.0 kPa, usual as written', () => {
+    // Found by the conversion property test there and back: 20.0 kPa is 150.01 mmHg, which PN302
+    // called unusual, so the way back left it in kPa. PN302 now compares a number written in another
+    // unit at the precision written (withinAsWritten). 1 kPa = 7.50062 mmHg, definition of the units.
     const text = note('@ 08:00', 'abg pco2 150 mmHg', 'abg 7.10/150/80');
     const codes = (t: string) => checkNote(t).findings.map((f) => f.code).sort();
     const converted = applyEdits(text, convertNoteUnits(checkNote(text), 'kPa'));
-    expect(converted).toBe(note('units     gas kPa', '@ 08:00', 'abg pco2 19.99 kPa', 'abg 7.10/19.99/10.7'));
+    expect(converted).toBe(note('units     gas kPa', '@ 08:00', 'abg pco2 20.0 kPa', 'abg 7.10/20.0/10.7'));
     expect(codes(converted)).toEqual(codes(text));
     expect(codes(converted)).not.toContain('PN302');
-    // Back in mmHg, 149.9: the number that reads back as 19.99 kPa, as written then (150 is 20.0 kPa).
-    expect(applyEdits(converted, convertNoteUnits(checkNote(converted), 'mmHg'))).toBe(note('units     gas mmHg', '@ 08:00', 'abg pco2 149.9 mmHg', 'abg 7.10/149.9/80'));
+    // And back, as first written.
+    expect(applyEdits(converted, convertNoteUnits(checkNote(converted), 'mmHg'))).toBe(note('units     gas mmHg', '@ 08:00', 'abg pco2 150 mmHg', 'abg 7.10/150/80'));
     // The value under the cursor too.
-    expect(after(note('@ 08:00', 'abg pco2 1|50 mmHg'), 'Write pco2 in kPa: 19.99 kPa')).toBe(note('@ 08:00', 'abg pco2 19.99 kPa'));
+    expect(after(note('@ 08:00', 'abg pco2 1|50 mmHg'), 'Write pco2 in kPa: 20.0 kPa')).toBe(note('@ 08:00', 'abg pco2 20.0 kPa'));
   });
 
   it('keeps an unusual value as read, with its unit written', () => {

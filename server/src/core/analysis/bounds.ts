@@ -59,6 +59,39 @@ export function within(value: number, bounds: Bounds | undefined): boolean {
 }
 
 /**
+ * Whether `value` (in the field's own unit) lies within usual `bounds` at the precision it was
+ * written with. A number written in another unit than the field's own carries a rounding of the
+ * conversion that its writer did not make: 20.0 kPa is 150.01 mmHg, yet written to a tenth of a
+ * kPa it is the usual maximum of PaCO2, 150 mmHg. Such a number lies within when some number it
+ * can stand for (its last written digit give or take a half) does. A number in the field's own
+ * unit is compared as it is. `readUnit`: the unit it was read in; `text`: the number as written.
+ */
+export function withinAsWritten(value: number, bounds: Bounds | undefined, field: FieldDef, readUnit: string | null, text: string | null): boolean {
+  if (within(value, bounds)) return true;
+  if (!bounds || readUnit === null || text === null || readUnit === field.unit) return false;
+  const from = unitById(readUnit);
+  const canonical = unitById(field.unit ?? '');
+  const written = from && canonical ? convert(value, canonical, from) : null;
+  if (!from || !canonical || written === null) return false;
+  const half = 0.5 * 10 ** -decimalsOf(text);
+  const a = convert(written - half, from, canonical);
+  const b = convert(written + half, from, canonical);
+  if (a === null || b === null) return false;
+  const low = Math.min(a, b);
+  const high = Math.max(a, b);
+  return (bounds.min === undefined || high >= bounds.min) && (bounds.max === undefined || low <= bounds.max);
+}
+
+/** Decimals written after the point (or comma) of a number: `20.0` → 1, `150` → 0. */
+function decimalsOf(text: string): number {
+  const point = Math.max(text.indexOf('.'), text.indexOf(','));
+  if (point < 0) return 0;
+  let end = point + 1;
+  while (end < text.length && text.charCodeAt(end) >= 0x30 && text.charCodeAt(end) <= 0x39) end++;
+  return end - point - 1;
+}
+
+/**
  * The field's units, other than `except`, in which the number as written (`written`) lies within
  * every one of `bounds` once read into the field's canonical unit: where a number written or
  * read in one unit would be ordinary (PN204 for a bare number, PN301's fix for a written unit).

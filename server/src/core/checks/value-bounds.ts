@@ -3,7 +3,7 @@
  * bounds (field registry). Saturations above 100 % and FiO2 outside 0.21–1.0 have checks
  * of their own and are left to them.
  */
-import { softBoundsAt, unitsWithin, within } from '../analysis/bounds';
+import { softBoundsAt, unitsWithin, within, withinAsWritten } from '../analysis/bounds';
 import type { StatedValue } from '../analysis/model';
 import type { Bounds, FieldDef } from '../fields/registry';
 import { displayUnit, isSaturationFraction } from '../analysis/read-value';
@@ -179,7 +179,7 @@ export const unusualValue = defineCheck({
   severity: 'warning',
   tags: ['plausibility'],
   doc: {
-    fires: 'A value is possible but outside the usual (soft) bounds of its field: worth a second look at the unit or the transcription. Low arterial gas pressures are not flagged where the barometric pressure is below 500 mmHg, since they are real at extreme altitude. A tidal volume is usual from 2 mL per kg of body size (the smaller of the weight and the predicted body weight in force), or from 50 mL where the note gives neither; in HFOV, which moves 1–3 mL/kg a breath, it has no usual minimum. A saturation written as a fraction with no unit (`spo2 0.94`) is reported with the percentage offered, and is not used until it is rewritten.',
+    fires: 'A value is possible but outside the usual (soft) bounds of its field: worth a second look at the unit or the transcription. Low arterial gas pressures are not flagged where the barometric pressure is below 500 mmHg, since they are real at extreme altitude. A tidal volume is usual from 2 mL per kg of body size (the smaller of the weight and the predicted body weight in force), or from 50 mL where the note gives neither; in HFOV, which moves 1–3 mL/kg a breath, it has no usual minimum. A number written in another unit than its field\'s own is compared at the precision written: `pco2 20.0 kPa` is 150.01 mmHg, yet to a tenth of a kPa it is the usual maximum of 150 mmHg, and is not reported. A saturation written as a fraction with no unit (`spo2 0.94`) is reported with the percentage offered, and is not used until it is rewritten.',
     example: 'vitals hr 236',
     fix: 'Confirm the value; if it is right, the warning can stay (or the check can be switched off in settings). Where the number is usual in the field\'s other unit (`vt 0.45 mL`, meant as L), a quick fix writes that unit.',
   },
@@ -203,7 +203,8 @@ export const unusualValue = defineCheck({
     if (OWN_CHECKS.has(field.id) || !stated.usable || stated.readUnit === null || stated.unitDoubt) return;
     if (field.hard && outOfBounds(stated, field.hard)) return;
     const soft = usualBounds(field, barometricMmhg, at);
-    if (!outOfBounds(stated, soft)) return;
+    // A number written in another unit is compared at the precision written: 20.0 kPa is PaCO2's usual 150 mmHg.
+    if (!outOfBounds(stated, soft) || (stated.value !== null && withinAsWritten(stated.value, soft, field, stated.readUnit, stated.item.number === null ? null : stated.item.value?.text ?? null))) return;
     // A unit written in which the number is usual (`vt 0.45 mL`, meant as L) is offered, not preferred:
     // the value is possible as written.
     const other = otherUnitFix(field, stated, soft);

@@ -17,7 +17,7 @@ import type { ItemNode, LineNode, SectionLine } from '../syntax/tree';
 import type { TextEdit } from '../types';
 import { formatNumber, formatShort } from '../util/format';
 import { ITEM_COLUMN } from './format';
-import { within } from '../analysis/bounds';
+import { within, withinAsWritten } from '../analysis/bounds';
 import { allStated, lineRange, statedOnLine } from './locate';
 
 export type GasUnit = 'mmHg' | 'kPa';
@@ -41,8 +41,9 @@ export function otherUnit(s: StatedValue): string | null {
  * more where those would not convert back to the number as the note wrote it: 9.0 kPa is written
  * 67.5 mmHg, not 68 (which is 9.1 kPa), and 28.5 % is 0.285, not 0.29 (29 %). So converting a
  * value there and back gives the number written, and a possible value is not rounded past what
- * is possible, nor a usual one past what is usual (PaCO2 150 mmHg, the most that is usual, is
- * 19.99 kPa: 20.0 kPa is 150.01 mmHg, which PN302 would call unusual).
+ * is possible. A usual value stays usual without more: PN302 compares a number written in another
+ * unit at the precision written (`withinAsWritten`), so PaCO2 150 mmHg, the most that is usual, is
+ * 20.0 kPa (150.01 mmHg, and as written the usual maximum).
  */
 export function numberIn(s: StatedValue, field: FieldDef, to: string): string | null {
   const canonical = unitById(s.unit ?? '');
@@ -54,20 +55,17 @@ export function numberIn(s: StatedValue, field: FieldDef, to: string): string | 
   const write = (decimals: number) => (to === '%' ? formatShort(v, decimals) : formatNumber(v, decimals));
   const written = writtenNumber(s);
   const from = s.readUnit ? unitById(s.readUnit) : undefined;
-  // A possible value stays possible (200 mmHg, the most an EtCO2 can be, is 26.66 kPa: 26.7 kPa is
-  // over it), and a usual one usual.
+  // A possible value stays possible (200 mmHg, the most an EtCO2 can be, is 26.66 kPa: 26.7 kPa is over it).
   const possible = within(s.value, field.hard);
-  const ordinary = possible && within(s.value, field.soft);
   if (written && from && from.id !== target.id) {
     for (let decimals = usual; decimals <= usual + 2; decimals++) {
       // The nearest number, or where that is past a bound the value is within, the one on its side.
-      const candidates = [write(decimals), towardBound(v, decimals, target, canonical, field.hard), ordinary ? towardBound(v, decimals, target, canonical, field.soft) : null];
-      for (const text of candidates) {
+      for (const text of [write(decimals), towardBound(v, decimals, target, canonical, field.hard)]) {
         if (text === null) continue;
         const back = convert(Number(text), target, from);
         const read = convert(Number(text), target, canonical);
         if (back === null || formatNumber(back, written.decimals) !== formatNumber(written.value, written.decimals)) continue;
-        if ((!possible || (read !== null && within(read, field.hard))) && (!ordinary || (read !== null && within(read, field.soft)))) return text;
+        if (!possible || (read !== null && within(read, field.hard))) return text;
       }
     }
   }
@@ -260,7 +258,7 @@ export function convertNoteUnits(result: NoteResult, to: GasUnit): TextEdit[] {
  * stays recognisable) and gets the unit it was read in written out when it was bare.
  */
 function ordinary(s: StatedValue, field: FieldDef): boolean {
-  return s.value !== null && !s.unitDoubt && within(s.value, field.soft) && within(s.value, field.hard);
+  return s.value !== null && !s.unitDoubt && withinAsWritten(s.value, field.soft, field, s.readUnit, s.item.value?.text ?? null) && within(s.value, field.hard);
 }
 
 /** Edits that keep the numbers as read and write their unit when the reading would change. */
