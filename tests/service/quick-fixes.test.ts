@@ -129,7 +129,10 @@ function convertedAsMeant(line: number, index: number, again: NoteResult, before
 function comparedWithValueLetRead(g: Finding, action: ActionInfo, before: NoteResult, again: NoteResult): boolean {
   if (g.code === 'PN301') return false;
   const usable = (s: StatedValue | undefined) => s?.usable === true && (s.value !== null || s.parts !== null || s.word !== null);
-  const readBefore = (line: number, fieldId: string) => before.analysis.timeline.timepoints.some((tp) => tp.stated.some((s) => s.line === line && s.fieldId === fieldId && usable(s)));
+  // Read before: the same field on the line with the same reading (`peep 0.0,, peep 7.35..` read
+  // PEEP 0 before its full stops were removed, not the 7.35 the fix let be read).
+  const same = (a: StatedValue, b: StatedValue) => a.value === b.value && a.word === b.word && JSON.stringify(a.parts) === JSON.stringify(b.parts);
+  const readBefore = (line: number, now: StatedValue) => before.analysis.timeline.timepoints.some((tp) => tp.stated.some((s) => s.line === line && s.fieldId === now.fieldId && usable(s) && same(s, now)));
   const letRead: number[] = [];
   for (const line of new Set(action.edits.map((e) => e.range.start.line))) {
     const node = again.analysis.tree.lines[line];
@@ -137,7 +140,7 @@ function comparedWithValueLetRead(g: Finding, action: ActionInfo, before: NoteRe
     const beforeLine = points(before.analysis.tree.lines[line]?.text ?? '');
     node.items.forEach((item, index) => {
       const now = statedAt(again, line, index);
-      if (!now || !usable(now) || !item.value || readBefore(line, now.fieldId)) return;
+      if (!now || !usable(now) || !item.value || readBefore(line, now)) return;
       if (beforeLine.includes(points(item.value.text)) || convertedAsMeant(line, index, again, before)) letRead.push(line);
     });
   }
@@ -235,6 +238,17 @@ describe('a fix that lets a value be read', () => {
     const action = codeActions(result, unit.range).find((a) => a.title === 'Change to cmH2O')!;
     const after = checkNote(applyEdits(text, action.edits));
     expect(after.findings.map((f) => f.code)).toEqual(['PN303']);
+    expect(problemsAfter(text, result, action)).toEqual([]);
+  });
+
+  it('may reveal an error with a value let read beside one of its field read before: `peep 0.0,, peep 7.35..`', () => {
+    // Found by the sweep on generated notes (seed 1268806437): the later PEEP was unreadable with
+    // its full stops, so the line read PEEP 0; removed, 7.35 is read, above the plateau as written.
+    const text = 'vent plateau 0.00\nvent peep 0.0,, peep 7.35..';
+    const result = checkNote(text);
+    const stray = result.findings.find((f) => f.code === 'PN105' && f.range.start.line === 1 && f.range.start.character > 20)!;
+    const action = codeActions(result, stray.range).find((a) => a.title === 'Remove the full stop')!;
+    expect(checkNote(applyEdits(text, action.edits)).findings.map((f) => f.code)).toContain('PN303');
     expect(problemsAfter(text, result, action)).toEqual([]);
   });
 
