@@ -1,7 +1,7 @@
 // Which notes a command reads: paths that look like patterns, exclusions outside the working
 // folder, `.pneuignore` files in the folders scanned, inputs that hold no note, extensions in any
 // case, and notes that are not UTF-8.
-import { chmodSync, copyFileSync, mkdirSync, mkdtempSync, readdirSync, symlinkSync, writeFileSync } from 'node:fs';
+import { chmodSync, closeSync, copyFileSync, mkdirSync, mkdtempSync, openSync, readdirSync, symlinkSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { spawnSync } from 'node:child_process';
 import { join, resolve } from 'node:path';
@@ -476,5 +476,42 @@ describe('what a folder walk cannot read is a problem, never skipped in silence'
     const fmt = io(dir);
     expect(await run(['fmt', '--check', '.'], fmt)).toBe(2);
     expect(fmt.err()).toContain('pneumark: b.pneu: a symbolic link to something that does not exist (moved-away.pneu)\n');
+  });
+});
+
+describe('inputs that never end', () => {
+  // Run by the built command with a time limit: before, each of these read until memory ran out or
+  // waited forever, which no test could interrupt in its own process.
+  const cli = (args: readonly string[], cwd: string, stdin: number | 'pipe' = 'pipe') =>
+    spawnSync(process.execPath, [join(process.cwd(), 'dist/cli.js'), ...args], { cwd, stdio: [stdin, 'pipe', 'pipe'], encoding: 'utf8', timeout: 30_000 });
+
+  it.skipIf(process.platform === 'win32')('a note that is a device without end (/dev/zero) is read up to the size limit and refused', () => {
+    const dir = tempDir();
+    symlinkSync('/dev/zero', join(dir, 'zero.pneu'));
+    const named = cli(['check', 'zero.pneu'], dir);
+    expect(named.stderr).toBe('pneumark: zero.pneu: too large to check (the limit is 20 MB)\n');
+    expect(named.status).toBe(2);
+  });
+
+  it.skipIf(process.platform === 'win32')('standard input without end is read up to the size limit and refused', () => {
+    const zero = openSync('/dev/zero', 'r');
+    try {
+      const child = cli(['check', '-'], process.cwd(), zero);
+      expect(child.stderr).toBe('pneumark: <stdin>: too large to check (the limit is 20 MB)\n');
+      expect(child.status).toBe(2);
+    } finally {
+      closeSync(zero);
+    }
+  });
+
+  it.skipIf(process.platform === 'win32')('a .pneuignore that is a pipe nobody writes to, or a link to /dev/zero, is not read: it excludes nothing', () => {
+    for (const make of [(path: string) => spawnSync('mkfifo', [path]), (path: string) => symlinkSync('/dev/zero', path)]) {
+      const dir = tempDir();
+      writeFileSync(join(dir, 'a.pneu'), alarming);
+      make(join(dir, '.pneuignore'));
+      const folder = cli(['check', '.'], dir);
+      expect(reported(folder.stdout)).toEqual(['a.pneu']);
+      expect(folder.status).toBe(1);
+    }
   });
 });

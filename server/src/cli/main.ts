@@ -18,7 +18,7 @@ import { COLUMNS_END, COLUMNS_START, renderColumnTable } from '../core/export/do
 import { colourWanted, paint, type Paint } from './colour';
 import { runExport, exportRenderer } from './export-command';
 import { runFmt } from './fmt-command';
-import { listInputs, readNote } from './inputs';
+import { listInputs, MAX_NOTE_BYTES, readNote, readUpTo } from './inputs';
 import { gather, type BatchDone, type WorkDone, type WorkItem } from './pool';
 import { CheckJsonWriter, countOutcome, jsonFileEntryOrProblem, writeCheckSarif, writeCheckText, type FileOutcome } from './render-check';
 import type { SeverityCounts } from './render-show';
@@ -218,7 +218,7 @@ if (!isMainThread && (workerData as { pneumarkWorker?: boolean } | null)?.pneuma
     env: process.env,
     stdout: process.stdout,
     stderr: process.stderr,
-    stdin: () => readFileSync(0),
+    stdin: () => readUpTo(0, MAX_NOTE_BYTES + 1),
   }).then((code) => {
     process.exitCode = code;
   });
