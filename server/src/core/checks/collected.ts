@@ -70,9 +70,9 @@ export const badTime = syntaxCheck('PN104', 'bad-time', 'Unreadable time', 'erro
 });
 
 export const strayText = syntaxCheck('PN105', 'stray-text', 'Stray text', 'error', {
-  fires: 'A number (or other text) appears where a key was expected. At information level: a full stop that ends a line of items (`hr 80.`, read as `hr 80`), or a comma that separates nothing (at the start of a line, right after its section word or `@`, a second one between two items, where a value may be missing, or between the time and the label of a timepoint); the line is read without it.',
+  fires: 'A number (or other text) appears where a key was expected, or a number is typed with digits other than 0–9 (fullwidth `８０`, Arabic-Indic `٨٠`), which are not read as a number. At information level: a full stop that ends a line of items (`hr 80.`, read as `hr 80`), or a comma that separates nothing (at the start of a line, right after its section word or `@`, a second one between two items, where a value may be missing, or between the time and the label of a timepoint); the line is read without it.',
   example: 'vitals hr 118 120',
-  fix: 'Give the number its key (`rr 20`), or remove it. A full stop or a comma that separates nothing has a fix that removes it, also for the whole note.',
+  fix: 'Give the number its key (`rr 20`), or remove it; write a number in the digits 0–9 (a fix does it). A full stop or a comma that separates nothing has a fix that removes it, also for the whole note.',
 });
 
 export const badShorthand = syntaxCheck('PN106', 'bad-shorthand', 'Unreadable shorthand gas', 'error', {
