@@ -31,7 +31,14 @@ const exportOptions = z.object({
     if (problem === null) return;
     // A time other than 00:00 is a date-time all the same: say what is wrong with it.
     const notMidnight = problem.includes('is 00:00 of day 1');
-    ctx.addIssue({ code: 'custom', message: notMidnight ? 'is 00:00 of day 1 (the note\'s clock times are added to it): write its time as 00:00, e.g. 2026-01-05T00:00:00Z' : 'not an ISO 8601 date-time with a zone, e.g. 2026-01-05T00:00:00Z' });
+    // Written as a date-time, but no such day or time (`2026-02-30`, `24:00`, `+15:00`).
+    const noSuchDate = problem.includes('is not a valid date and time');
+    ctx.addIssue({
+      code: 'custom',
+      message: notMidnight ? 'is 00:00 of day 1 (the note\'s clock times are added to it): write its time as 00:00, e.g. 2026-01-05T00:00:00Z'
+        : noSuchDate ? 'no such date, time or zone offset (offsets go from -14:00 to +14:00), e.g. 2026-01-05T00:00:00Z'
+          : 'not an ISO 8601 date-time with a zone, e.g. 2026-01-05T00:00:00Z',
+    });
   }),
   exclude: z.array(z.string().min(1).max(500)).max(100).default([]),
   jobs: jobsOption,
