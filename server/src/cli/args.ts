@@ -5,6 +5,7 @@
 import { parseArgs } from 'node:util';
 import { z } from 'zod';
 import { wordList } from '../core/util/format';
+import { visible } from './visible';
 
 export interface Io {
   readonly cwd: string;
@@ -166,7 +167,7 @@ export function parse(args: readonly string[], options: OptionSpec): { positiona
     return { positionals: parsed.positionals, values: parsed.values as Record<string, string | boolean | string[] | undefined> };
   } catch (error) {
     if (error instanceof UsageError) throw error;
-    throw new UsageError(optionProblem(error));
+    throw new UsageError(optionProblem(error, joined));
   }
 }
 
@@ -184,12 +185,17 @@ function twice(tokens: ReturnType<typeof parseArgs>['tokens'], options: OptionSp
   }
 }
 
-/** Node's parseArgs error, in one line of our own words. */
-function optionProblem(error: unknown): string {
+/** Node's parseArgs error, in one line of our own words (`args`: the arguments it was given). */
+function optionProblem(error: unknown, args: readonly string[]): string {
   const message = error instanceof Error ? error.message : String(error);
   const code = (error as { code?: unknown } | null)?.code;
   const option = /'(-{1,2}[^'\s=<]+)/.exec(message)?.[1] ?? 'an option';
-  if (code === 'ERR_PARSE_ARGS_UNKNOWN_OPTION') return `unknown option ${option} (see --help)`;
+  if (code === 'ERR_PARSE_ARGS_UNKNOWN_OPTION') {
+    // `check -notes.pneu` reads as the options -n, -o, …: name the way to a note named so.
+    const note = args.find((a) => a.startsWith(option) && /\.pneu$/i.test(a));
+    const shown = note === undefined ? '' : visible(note);
+    return note === undefined ? `unknown option ${option} (see --help)` : `unknown option ${option} (see --help); for a note named ${shown}, write ./${shown} or put -- before it`;
+  }
   if (code === 'ERR_PARSE_ARGS_INVALID_OPTION_VALUE') {
     if (/argument missing/.test(message)) return `${option} needs a value`;
     if (/does not take an argument/.test(message)) return `${option} takes no value`;
