@@ -706,8 +706,12 @@ function splitOffset(body: string, offset: Word, next: Word | undefined, issues:
   });
 }
 
-/** The last day a note can name (`@ day 100000`), and the longest offset: about 270 years, far beyond any note, and kept exactly by a number. */
-const MAX_DAY = 100_000;
+/**
+ * The last day a note can name (`@ day 100000`), and the longest offset: about 270 years, far
+ * beyond any note, and kept exactly by a number. The timeline holds timepoints that offsets or
+ * clock times take past it to the same limit.
+ */
+export const MAX_DAY = 100_000;
 const MAX_OFFSET_MINUTES = MAX_DAY * 1440;
 
 function offsetMinutes(text: string, withinLarger: boolean): number | null {
