@@ -515,3 +515,32 @@ describe('inputs that never end', () => {
     }
   });
 });
+
+describe('patterns with many `**`', () => {
+  // Each `**` multiplies the time a pattern takes to match a path by the path's depth: fourteen of
+  // them took ten seconds for each note 30 folders deep, and a .pneuignore comes with the notes.
+  const deep = ['d', 'd', 'd', 'd', 'd'].join('/');
+
+  it('--exclude takes at most two', async () => {
+    const dir = tempDir();
+    mkdirSync(join(dir, deep), { recursive: true });
+    writeFileSync(join(dir, deep, 'n.pneu'), alarming);
+    const three = io(dir);
+    expect(await run(['check', '.', '--exclude', '**/d/**/d/**/n.pneu'], three)).toBe(2);
+    expect(three.err()).toBe('pneumark check: --exclude: holds more than 2 `**`, which makes matching take too long on deep folders (got "**/d/**/d/**/n.pneu")\n');
+    const two = io(dir);
+    expect(await run(['check', '.', '--exclude', '**/d/**/n.pneu'], two)).toBe(2);
+    expect(two.err()).toContain('excluded by --exclude');
+  });
+
+  it('a .pneuignore line with more than two is left out; its other lines apply', async () => {
+    const dir = tempDir();
+    mkdirSync(join(dir, deep), { recursive: true });
+    writeFileSync(join(dir, deep, 'n.pneu'), alarming);
+    writeFileSync(join(dir, deep, 'other.pneu'), alarming);
+    writeFileSync(join(dir, '.pneuignore'), `${'**/d/'.repeat(3)}n.pneu\n**/d/**/other.pneu\n`);
+    const folder = io(dir);
+    expect(await run(['check', '.'], folder)).toBe(1);
+    expect(reported(folder.out())).toEqual([`${deep}/n.pneu`]);
+  });
+});

@@ -136,6 +136,24 @@ export function wholeNumberOption(min: number, max: number, message: string, sig
 /** `--jobs N`: worker threads for check and export (0 or 1: this thread only). */
 export const jobsOption = wholeNumberOption(0, 64, 'expected a whole number from 0 to 64').optional();
 
+/**
+ * The most `**` one exclusion pattern may hold. Each one more multiplies the time a pattern takes
+ * to be matched against a path by the depth of the path (the pattern is matched as a regular
+ * expression that tries every split of the path): fourteen `**`, each before a folder name, took
+ * ten seconds for each note 30 folders deep.
+ */
+export const MAX_GLOBSTARS = 2;
+
+/** How many `**` a pattern holds. */
+export function globstarsIn(pattern: string): number {
+  let count = 0;
+  for (let at = pattern.indexOf('**'); at >= 0; at = pattern.indexOf('**', at + 2)) count++;
+  return count;
+}
+
+/** `--exclude` patterns: each a gitignore pattern with at most `MAX_GLOBSTARS` `**`. */
+export const excludeOption = z.array(z.string().min(1).max(500).refine((p) => globstarsIn(p) <= MAX_GLOBSTARS, { message: `holds more than ${MAX_GLOBSTARS} \`**\`, which makes matching take too long on deep folders` })).max(100).default([]);
+
 type OptionSpec = Record<string, { type: 'string' | 'boolean'; short?: string; multiple?: boolean }>;
 
 /** A number with a minus sign (`-3`, `-0.5`): after an option that takes a value, that value. */

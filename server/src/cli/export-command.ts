@@ -10,7 +10,7 @@ import { exportColumns, timepointCells } from '../core/export/columns';
 import { anchorProblem, toFhirBundle } from '../core/export/fhir';
 import { toJsonl } from '../core/export/jsonl';
 import { wordList } from '../core/util/format';
-import { EXIT, HELP, jobsOption, parse, UsageError, validate, wholeNumberOption, type Io } from './args';
+import { excludeOption, EXIT, HELP, jobsOption, parse, UsageError, validate, wholeNumberOption, type Io } from './args';
 import { ConfigReport, reportConfigProblems } from './config-report';
 import { listInputs } from './inputs';
 import { Output } from './output';
@@ -40,7 +40,7 @@ const exportOptions = z.object({
           : 'not an ISO 8601 date-time with a zone, e.g. 2026-01-05T00:00:00Z',
     });
   }),
-  exclude: z.array(z.string().min(1).max(500)).max(100).default([]),
+  exclude: excludeOption,
   jobs: jobsOption,
   progress: z.boolean().default(true),
 });

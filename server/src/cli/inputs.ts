@@ -19,7 +19,7 @@ import { basename, dirname, isAbsolute, join, normalize, relative, resolve, sep 
 import ignore, { type Ignore } from 'ignore';
 import { globSync, isDynamicPattern, type FileSystemAdapter } from 'tinyglobby';
 import { CONFIG_FILE_NAME } from '../core/config';
-import { refuseEmptyPaths } from './args';
+import { globstarsIn, MAX_GLOBSTARS, refuseEmptyPaths } from './args';
 
 /** Test hook: lists a folder in place of `fs.readdirSync` (a folder root cannot be kept out of otherwise). */
 export const inputHooks: { readdirSync: ((path: string, options: { withFileTypes: true }) => unknown) | undefined } = { readdirSync: undefined };
@@ -458,7 +458,9 @@ class IgnoreFiles {
         const fd = openSync(join(folder, IGNORE_FILE), constants.O_RDONLY | constants.O_NONBLOCK);
         try {
           const stat = fstatSync(fd);
-          if (stat.isFile()) patterns = ignore().add(readAll(fd, stat.size).toString('utf8'));
+          // A line with more `**` than `--exclude` takes is left out (see MAX_GLOBSTARS): a
+          // .pneuignore comes with the notes, and could otherwise hold a run up for hours.
+          if (stat.isFile()) patterns = ignore().add(readAll(fd, stat.size).toString('utf8').split(/\r?\n/).filter((line) => globstarsIn(line) <= MAX_GLOBSTARS));
         } finally {
           closeSync(fd);
         }

@@ -10,7 +10,7 @@ import { resolve } from 'node:path';
 import { isMainThread, parentPort, workerData } from 'node:worker_threads';
 import { z } from 'zod';
 import { checkNote } from '../core/check-note';
-import { CAUTION, EXIT, HELP, jobsOption, parse, refuseEmptyPaths, UsageError, validate, wholeNumberOption, type Io } from './args';
+import { CAUTION, excludeOption, EXIT, HELP, jobsOption, parse, refuseEmptyPaths, UsageError, validate, wholeNumberOption, type Io } from './args';
 import { ConfigReport, reportConfigProblems } from './config-report';
 import { renderCheckDocs } from '../core/checks/docs';
 import { replaceBetween, withGeneratedTables } from '../core/fields/docs';
@@ -79,7 +79,7 @@ const checkOptions = z.object({
   format: z.enum(['text', 'json', 'sarif']).default('text'),
   quiet: z.boolean().default(false),
   maxWarnings: wholeNumberOption(0, 1_000_000_000, 'expected a whole number from 0 to 1,000,000,000').optional(),
-  exclude: z.array(z.string().min(1).max(500)).max(100).default([]),
+  exclude: excludeOption,
   jobs: jobsOption,
   progress: z.boolean().default(true),
 });
