@@ -1,7 +1,7 @@
 // Which notes a command reads: paths that look like patterns, exclusions outside the working
 // folder, `.pneuignore` files in the folders scanned, inputs that hold no note, extensions in any
 // case, and notes that are not UTF-8.
-import { chmodSync, copyFileSync, mkdirSync, mkdtempSync, readdirSync, symlinkSync, writeFileSync } from 'node:fs';
+import { chmodSync, closeSync, copyFileSync, mkdirSync, mkdtempSync, openSync, readdirSync, symlinkSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { spawnSync } from 'node:child_process';
 import { join, resolve } from 'node:path';
@@ -476,5 +476,71 @@ describe('what a folder walk cannot read is a problem, never skipped in silence'
     const fmt = io(dir);
     expect(await run(['fmt', '--check', '.'], fmt)).toBe(2);
     expect(fmt.err()).toContain('pneumark: b.pneu: a symbolic link to something that does not exist (moved-away.pneu)\n');
+  });
+});
+
+describe('inputs that never end', () => {
+  // Run by the built command with a time limit: before, each of these read until memory ran out or
+  // waited forever, which no test could interrupt in its own process.
+  const cli = (args: readonly string[], cwd: string, stdin: number | 'pipe' = 'pipe') =>
+    spawnSync(process.execPath, [join(process.cwd(), 'dist/cli.js'), ...args], { cwd, stdio: [stdin, 'pipe', 'pipe'], encoding: 'utf8', timeout: 30_000 });
+
+  it.skipIf(process.platform === 'win32')('a note that is a device without end (/dev/zero) is read up to the size limit and refused', () => {
+    const dir = tempDir();
+    symlinkSync('/dev/zero', join(dir, 'zero.pneu'));
+    const named = cli(['check', 'zero.pneu'], dir);
+    expect(named.stderr).toBe('pneumark: zero.pneu: too large to check (the limit is 20 MB)\n');
+    expect(named.status).toBe(2);
+  });
+
+  it.skipIf(process.platform === 'win32')('standard input without end is read up to the size limit and refused', () => {
+    const zero = openSync('/dev/zero', 'r');
+    try {
+      const child = cli(['check', '-'], process.cwd(), zero);
+      expect(child.stderr).toBe('pneumark: <stdin>: too large to check (the limit is 20 MB)\n');
+      expect(child.status).toBe(2);
+    } finally {
+      closeSync(zero);
+    }
+  });
+
+  it.skipIf(process.platform === 'win32')('a .pneuignore that is a pipe nobody writes to, or a link to /dev/zero, is not read: it excludes nothing', () => {
+    for (const make of [(path: string) => spawnSync('mkfifo', [path]), (path: string) => symlinkSync('/dev/zero', path)]) {
+      const dir = tempDir();
+      writeFileSync(join(dir, 'a.pneu'), alarming);
+      make(join(dir, '.pneuignore'));
+      const folder = cli(['check', '.'], dir);
+      expect(reported(folder.stdout)).toEqual(['a.pneu']);
+      expect(folder.status).toBe(1);
+    }
+  });
+});
+
+describe('patterns with many `**`', () => {
+  // Each `**` multiplies the time a pattern takes to match a path by the path's depth: fourteen of
+  // them took ten seconds for each note 30 folders deep, and a .pneuignore comes with the notes.
+  const deep = ['d', 'd', 'd', 'd', 'd'].join('/');
+
+  it('--exclude takes at most two', async () => {
+    const dir = tempDir();
+    mkdirSync(join(dir, deep), { recursive: true });
+    writeFileSync(join(dir, deep, 'n.pneu'), alarming);
+    const three = io(dir);
+    expect(await run(['check', '.', '--exclude', '**/d/**/d/**/n.pneu'], three)).toBe(2);
+    expect(three.err()).toBe('pneumark check: --exclude: holds more than 2 `**`, which makes matching take too long on deep folders (got "**/d/**/d/**/n.pneu")\n');
+    const two = io(dir);
+    expect(await run(['check', '.', '--exclude', '**/d/**/n.pneu'], two)).toBe(2);
+    expect(two.err()).toContain('excluded by --exclude');
+  });
+
+  it('a .pneuignore line with more than two is left out; its other lines apply', async () => {
+    const dir = tempDir();
+    mkdirSync(join(dir, deep), { recursive: true });
+    writeFileSync(join(dir, deep, 'n.pneu'), alarming);
+    writeFileSync(join(dir, deep, 'other.pneu'), alarming);
+    writeFileSync(join(dir, '.pneuignore'), `${'**/d/'.repeat(3)}n.pneu\n**/d/**/other.pneu\n`);
+    const folder = io(dir);
+    expect(await run(['check', '.'], folder)).toBe(1);
+    expect(reported(folder.out())).toEqual([`${deep}/n.pneu`]);
   });
 });

@@ -64,6 +64,8 @@ describe('option problems', () => {
     expect(await usageError(['check', '--exclude', '', NOTE])).toBe('pneumark check: --exclude: must not be empty (got "")');
     expect(await usageError(['check', '--format', 'xml', NOTE])).toBe('pneumark check: --format: must be one of text, json or sarif (got "xml")');
     expect(await usageError(['check', '--colour', NOTE])).toBe('pneumark check: unknown option --colour (see --help)');
+    expect(await usageError(['check', '-notes.pneu'])).toBe('pneumark check: unknown option -n (see --help); for a note named -notes.pneu, write ./-notes.pneu or put -- before it');
+    expect(await usageError(['fmt', '--write', '--a.PNEU'])).toBe('pneumark fmt: unknown option --a.PNEU (see --help); for a note named --a.PNEU, write ./--a.PNEU or put -- before it');
     expect(await usageError(['check', NOTE, '--format'])).toBe('pneumark check: --format needs a value');
     expect(await usageError(['check', '--quiet=yes', NOTE])).toBe('pneumark check: --quiet takes no value');
     expect(await usageError(['check', '--format', '-x', NOTE])).toBe('pneumark check: --format needs a value (write --format=VALUE for a value that starts with -)');

@@ -589,3 +589,38 @@ describe('timepoints', () => {
     expect(timepoint('@ day x').issues.map((i) => i.check)).toEqual(['bad-time']);
   });
 });
+
+describe('numbers typed with digits of another script', () => {
+  // Fullwidth digits come from East Asian input methods, Arabic-Indic and Devanagari ones from
+  // keyboards of those scripts. They are not read as numbers (the format's numbers are 0–9), and
+  // were reported as "not a key", which named nothing the writer could recognise.
+  const CASES: readonly [string, string, string][] = [
+    ['vitals hr ８０', '８０', '80'],
+    ['vitals rr ١٨', '١٨', '18'],
+    ['vitals spo2 ९५%', '९५', '95'],
+    ['vitals temp ３７．５ C', '３７．５', '37.5'],
+    ['vitals bp １２０／８０', '１２０／８０', '120/80'],
+    ['abg ph ٧٫٤', '٧٫٤', '7.4'],
+    ['abg 7.4/40/٩٠', '7.4/40/٩٠', '7.4/40/90'],
+    ['vitals hr 𝟖𝟎', '𝟖𝟎', '80'],
+    ['vitals hr ٨٠, rr 18', '٨٠', '80'],
+  ];
+  for (const [text, written, meant] of CASES) {
+    it(`${text}: says which digits, and offers to write ${meant}, which reads the value`, () => {
+      const node = section(text);
+      const issue = node.issues.find((i) => i.message.includes('digits other than 0–9'));
+      expect(issue?.message).toBe(`\`${written}\` is written with digits other than 0–9, which are not read as a number; write \`${meant}\`.`);
+      expect(at(text, issue!.span)).toBe(written);
+      const fix = issue!.fixes[0]!;
+      expect(fix.preferred).toBe(true);
+      const fixed = text.slice(0, fix.edits[0]!.span.start) + fix.edits[0]!.newText + text.slice(fix.edits[0]!.span.end);
+      const after = section(fixed);
+      expect(after.issues.filter((i) => i.check !== 'stray-text' || !i.message.includes('full stop'))).toEqual([]);
+      expect(after.items.every((i) => i.value !== null)).toBe(true);
+    });
+  }
+
+  it('a word without such digits is not a key, as before', () => {
+    expect(section('vitals hr 80, (80)').issues.map((i) => i.message)).toEqual(['`(80)` is not a key; write items as `key value`, e.g. `hr 118`.']);
+  });
+});

@@ -104,6 +104,14 @@ describe('--anchor', () => {
     expect(ok.status).toBe(0);
     expect(JSON.stringify(JSON.parse(ok.stdout))).toContain('"effectiveDateTime":"2024-03-01T08:00:00+01:00"');
   });
+
+  it('a date-time that names no such day is called so, not "not ISO 8601"', () => {
+    const dir = folder({ 'a.pneu': '@ day 1 08:00\nvitals hr 90\n' });
+    const r = cli(dir, ['export', 'a.pneu', '--format', 'fhir', '--anchor', '2026-02-30T00:00:00Z']);
+    expect(r.status).toBe(2);
+    expect(r.stderr).toBe('pneumark export: --anchor: no such date, time or zone offset (offsets go from -14:00 to +14:00), e.g. 2026-01-05T00:00:00Z (got "2026-02-30T00:00:00Z")\n');
+    expect(cli(dir, ['export', 'a.pneu', '--format', 'fhir', '--anchor', '2026-01-05']).stderr).toContain('not an ISO 8601 date-time with a zone');
+  });
 });
 
 describe('CSV read back equals the analysis, value by value', () => {

@@ -436,6 +436,15 @@ describe('time', () => {
     }
   });
 
+  it('an anchor in the years 1 to 99 is taken as that year (it was refused as no valid date: read as a year of 1901 to 1999)', () => {
+    expect(anchorProblem('0001-01-01T00:00:00Z')).toBeNull();
+    expect(anchorProblem('0048-02-29T00:00:00Z')).toBeNull();
+    expect(anchorProblem('0050-02-29T00:00:00Z')).not.toBeNull();
+    const times = observations(toFhirBundle('a.pneu', result, { anchor: '0050-06-01T00:00:00Z', redactProse: false, shiftDays: 0 })).map((o) => o.effectiveDateTime?.slice(0, 4));
+    expect(times.length).toBeGreaterThan(0);
+    expect(new Set(times)).toEqual(new Set(['0050']));
+  });
+
   it('an anchor offset is at most 14:00 either way, as a FHIR dateTime allows (its pattern: 00:00 to 13:59, or 14:00)', () => {
     for (const good of ['2024-03-01T00:00+14:00', '2024-03-01T00:00-14:00', '2024-03-01T00:00+13:59', '2024-03-01T00:00-00:00']) {
       expect(anchorProblem(good), good).toBeNull();

@@ -224,4 +224,22 @@ describe('numbers too large for a time', () => {
     expect(pn104('@ +100001d\nvitals hr 80')).toHaveLength(1);
     expect(pn104('@ +99999999999999999999h90\nvitals hr 80').map((f) => f.message)).toEqual(['`+99999999999999999999h90` is longer than a note can span (100000 days).']);
   });
+
+  it('offsets and clock times past midnight that reach beyond day 100000 are reported, and give no time (they ran on to day 10,000,000,001)', () => {
+    const text = `@ day 100000 23:59\nvitals hr 80\n${'@ +100000d\nvitals hr 81\n'.repeat(3)}@ day 100000 23:00\n@ 01:00\nvitals hr 82\n@ +1m\n`;
+    const r = checkNote(text);
+    expectSane(text, r);
+    expect(pn104(text).map((f) => `${f.range.start.line + 1}: ${f.message}`)).toEqual([
+      '3: `+100000d` takes this timepoint to day 200000, beyond what a note can span (100000 days from day 1); it has no time.',
+      '5: `+100000d` takes this timepoint to day 200000, beyond what a note can span (100000 days from day 1); it has no time.',
+      '7: `+100000d` takes this timepoint to day 200000, beyond what a note can span (100000 days from day 1); it has no time.',
+      '10: `01:00` takes this timepoint to day 100001, beyond what a note can span (100000 days from day 1); it has no time.',
+    ]);
+    expect(r.analysis.timeline.timepoints.map((tp) => tp.time.day)).toEqual([100000, null, null, null, 100000, null, 100000]);
+    expect(pn104('@ day 99999 23:00\n@ 01:00\n@ +1d\n@ +1m')).toHaveLength(1);
+    expect(pn104('@ +100000d\n@ +1m')).toHaveLength(1);
+    // An edit above them in an open session gives what a fresh analysis gives.
+    expectSessionAgrees(text, '\n');
+    expectSessionAgrees(text, '@ +1d\n');
+  });
 });

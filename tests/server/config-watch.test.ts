@@ -492,6 +492,34 @@ describe.runIf(process.platform === 'linux')('the watches the server holds (Linu
   });
 });
 
+describe.runIf(process.platform === 'linux')('a note closed while its settings are asked for', () => {
+  it('leaves no watch behind, and the note opened again at once is analysed', async () => {
+    const root = tempRoot();
+    const ws = join(root, 'ws');
+    mkdirSync(ws);
+    const client = await startClient({}, { workspaceFolders: [ws] });
+    try {
+      const pid = client.process.pid!;
+      // Closed before the client has answered the request for its settings (sent on opening).
+      const uri = client.open(join(ws, 'a.pneu'), NOTE);
+      await client.connection.sendNotification('textDocument/didClose', { textDocument: { uri } });
+      const again = join(ws, 'b.pneu');
+      const b = client.open(again, NOTE);
+      await client.connection.sendNotification('textDocument/didClose', { textDocument: { uri: b } });
+      client.open(again, '@ 08:00\nvitals spo2 104\n', 2);
+      expect((await client.diagnostics(b, (p) => p.version === 2)).diagnostics.map((d) => d.code)).toEqual(['PN306']);
+      const count = client.published.length;
+      await client.connection.sendNotification('textDocument/didClose', { textDocument: { uri: b } });
+      await client.diagnostics(b, (p) => client.published.indexOf(p) >= count);
+      expect(watchedInodes(pid)).toEqual([]);
+      expect(client.published.filter((p) => p.uri === uri && p.diagnostics.length > 0)).toEqual([]);
+    } finally {
+      await client.close();
+      rmSync(root, { recursive: true, force: true });
+    }
+  });
+});
+
 describe.runIf(process.platform === 'linux')('a folder the server cannot watch', () => {
   it('is looked at again when a note is saved, and the server says once that it cannot watch it', async () => {
     // Permissions do not hold for root: as root the server runs as the unprivileged user `nobody`

@@ -29,6 +29,12 @@ describe('readClientSettings', () => {
     expect(readClientSettings({ hints: 'all', debounceMs: 5 })).toMatchObject({ settings: { hints: {}, debounceMs: 5 }, problem: expect.stringMatching(/pneumark\.hints/) });
   });
 
+  it('names each problem of a setting once, and not the largest whole number JavaScript holds', () => {
+    expect(readClientSettings({ debounceMs: 1e308 }).problem).toBe('pneumark.debounceMs: must be at most 5000');
+    expect(readClientSettings({ maxNoteSizeKb: -1e300 }).problem).toBe('pneumark.maxNoteSizeKb: must be at least 16');
+    expect(readClientSettings({ disabledChecks: [1, 2, 3] }).problem).toBe('pneumark.disabledChecks: must be a string in quotes');
+  });
+
   it('takes nothing from the prototype and reports nothing for an empty section', () => {
     expect(readClientSettings(undefined)).toEqual({ settings: DEFAULT_CLIENT_SETTINGS, problem: null, unknownChecks: null });
     expect(readClientSettings(Object.create({ gasUnit: 'kPa' })).settings.analysis).toEqual({});

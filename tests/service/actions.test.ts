@@ -10,6 +10,7 @@ import type { StatedValue } from '../../server/src/core/analysis/model';
 import { within } from '../../server/src/core/analysis/bounds';
 import { fieldById } from '../../server/src/core/fields/registry';
 import { applyEdits, codeActions, convertNoteUnits, editsOverlap, keepsValues, type ActionInfo, type GasUnit } from '../../server/src/core/service';
+import { FIX_CHECKS_PER_LINE } from '../../server/src/core/service/actions';
 import type { TextEdit } from '../../server/src/core/types';
 import { PLACEHOLDERS } from '../../server/src/core/privacy/types';
 import { note, noteAt } from './cursor';
@@ -169,6 +170,36 @@ describe('fix all in a note with thousands of findings', () => {
     expect(first.find((a) => a.kind === 'source.fixAll')?.title).toBe('Apply every safe fix in the note (12000)');
     expect(second.find((a) => a.title.startsWith('Fix all in the note: Unknown key'))?.title).toContain('4000 places');
   }, 30_000);
+});
+
+describe('a long line with thousands of fixable findings', () => {
+  // A line of 16 KB with a doubled comma after every item, and one with a no-break space inside
+  // every item: each fix is checked by parsing its line again, which took seconds per request.
+  const LINES: readonly [string, string, string][] = [
+    ['doubled commas', `vitals ${'hr 80,, '.repeat(2000)}`, 'PN105'],
+    ['no-break spaces', `vitals ${'hr\u00a080, '.repeat(2000)}`, 'PN107'],
+  ];
+  const at = (line: number, character: number) => ({ start: { line, character }, end: { line, character } });
+  for (const [name, line, code] of LINES) {
+    it(`${name}: the fixes of the line are offered ${FIX_CHECKS_PER_LINE} at a time, and applying them offers the next`, () => {
+      const text = `@ 08:00\n${line}\nabg ph 7,35\n`;
+      const result = checkNote(text);
+      const onLine = result.findings.filter((f) => f.range.start.line === 1 && f.code === code);
+      expect(onLine.length).toBe(2000);
+      const first = codeActions(result, onLine[0]!.range);
+      expect(first.find((a) => a.title.startsWith('Fix all in the note') && a.findingCodes?.includes(code))?.title).toContain(`(${code}, ${FIX_CHECKS_PER_LINE} places)`);
+      // The fix of the decimal comma on the next line is offered too.
+      const all = first.find((a) => a.kind === 'source.fixAll')!;
+      expect(all.title).toBe(`Apply every safe fix in the note (${FIX_CHECKS_PER_LINE + 1})`);
+      const fixed = applyEdits(text, all.edits);
+      const again = checkNote(fixed);
+      expect(again.findings.filter((f) => f.code === code).length).toBe(2000 - FIX_CHECKS_PER_LINE);
+      expect(codeActions(again, at(0, 0)).find((a) => a.kind === 'source.fixAll')?.title).toBe(`Apply every safe fix in the note (${FIX_CHECKS_PER_LINE})`);
+      // The fix of a finding at the cursor is offered wherever the finding is on the line.
+      const last = onLine.at(-1)!;
+      expect(codeActions(result, last.range).some((a) => a.kind === 'quickfix' && a.resolves?.includes(last))).toBe(true);
+    });
+  }
 });
 
 describe('converting gas units in a long note', () => {

@@ -5,6 +5,7 @@
 import { parseArgs } from 'node:util';
 import { z } from 'zod';
 import { wordList } from '../core/util/format';
+import { visible } from './visible';
 
 export interface Io {
   readonly cwd: string;
@@ -135,6 +136,24 @@ export function wholeNumberOption(min: number, max: number, message: string, sig
 /** `--jobs N`: worker threads for check and export (0 or 1: this thread only). */
 export const jobsOption = wholeNumberOption(0, 64, 'expected a whole number from 0 to 64').optional();
 
+/**
+ * The most `**` one exclusion pattern may hold. Each one more multiplies the time a pattern takes
+ * to be matched against a path by the depth of the path (the pattern is matched as a regular
+ * expression that tries every split of the path): fourteen `**`, each before a folder name, took
+ * ten seconds for each note 30 folders deep.
+ */
+export const MAX_GLOBSTARS = 2;
+
+/** How many `**` a pattern holds. */
+export function globstarsIn(pattern: string): number {
+  let count = 0;
+  for (let at = pattern.indexOf('**'); at >= 0; at = pattern.indexOf('**', at + 2)) count++;
+  return count;
+}
+
+/** `--exclude` patterns: each a gitignore pattern with at most `MAX_GLOBSTARS` `**`. */
+export const excludeOption = z.array(z.string().min(1).max(500).refine((p) => globstarsIn(p) <= MAX_GLOBSTARS, { message: `holds more than ${MAX_GLOBSTARS} \`**\`, which makes matching take too long on deep folders` })).max(100).default([]);
+
 type OptionSpec = Record<string, { type: 'string' | 'boolean'; short?: string; multiple?: boolean }>;
 
 /** A number with a minus sign (`-3`, `-0.5`): after an option that takes a value, that value. */
@@ -166,7 +185,7 @@ export function parse(args: readonly string[], options: OptionSpec): { positiona
     return { positionals: parsed.positionals, values: parsed.values as Record<string, string | boolean | string[] | undefined> };
   } catch (error) {
     if (error instanceof UsageError) throw error;
-    throw new UsageError(optionProblem(error));
+    throw new UsageError(optionProblem(error, joined));
   }
 }
 
@@ -184,12 +203,17 @@ function twice(tokens: ReturnType<typeof parseArgs>['tokens'], options: OptionSp
   }
 }
 
-/** Node's parseArgs error, in one line of our own words. */
-function optionProblem(error: unknown): string {
+/** Node's parseArgs error, in one line of our own words (`args`: the arguments it was given). */
+function optionProblem(error: unknown, args: readonly string[]): string {
   const message = error instanceof Error ? error.message : String(error);
   const code = (error as { code?: unknown } | null)?.code;
   const option = /'(-{1,2}[^'\s=<]+)/.exec(message)?.[1] ?? 'an option';
-  if (code === 'ERR_PARSE_ARGS_UNKNOWN_OPTION') return `unknown option ${option} (see --help)`;
+  if (code === 'ERR_PARSE_ARGS_UNKNOWN_OPTION') {
+    // `check -notes.pneu` reads as the options -n, -o, …: name the way to a note named so.
+    const note = args.find((a) => a.startsWith(option) && /\.pneu$/i.test(a));
+    const shown = note === undefined ? '' : visible(note);
+    return note === undefined ? `unknown option ${option} (see --help)` : `unknown option ${option} (see --help); for a note named ${shown}, write ./${shown} or put -- before it`;
+  }
   if (code === 'ERR_PARSE_ARGS_INVALID_OPTION_VALUE') {
     if (/argument missing/.test(message)) return `${option} needs a value`;
     if (/does not take an argument/.test(message)) return `${option} takes no value`;

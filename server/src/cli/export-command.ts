@@ -10,7 +10,7 @@ import { exportColumns, timepointCells } from '../core/export/columns';
 import { anchorProblem, stdinNoteKey, toFhirBundle } from '../core/export/fhir';
 import { toJsonl } from '../core/export/jsonl';
 import { wordList } from '../core/util/format';
-import { EXIT, HELP, jobsOption, parse, UsageError, validate, wholeNumberOption, type Io } from './args';
+import { excludeOption, EXIT, HELP, jobsOption, parse, UsageError, validate, wholeNumberOption, type Io } from './args';
 import { ConfigReport, reportConfigProblems } from './config-report';
 import { listInputs, STDIN_NAME } from './inputs';
 import { Output } from './output';
@@ -31,9 +31,16 @@ const exportOptions = z.object({
     if (problem === null) return;
     // A time other than 00:00 is a date-time all the same: say what is wrong with it.
     const notMidnight = problem.includes('is 00:00 of day 1');
-    ctx.addIssue({ code: 'custom', message: notMidnight ? 'is 00:00 of day 1 (the note\'s clock times are added to it): write its time as 00:00, e.g. 2026-01-05T00:00:00Z' : 'not an ISO 8601 date-time with a zone, e.g. 2026-01-05T00:00:00Z' });
+    // Written as a date-time, but no such day or time (`2026-02-30`, `24:00`, `+15:00`).
+    const noSuchDate = problem.includes('is not a valid date and time');
+    ctx.addIssue({
+      code: 'custom',
+      message: notMidnight ? 'is 00:00 of day 1 (the note\'s clock times are added to it): write its time as 00:00, e.g. 2026-01-05T00:00:00Z'
+        : noSuchDate ? 'no such date, time or zone offset (offsets go from -14:00 to +14:00), e.g. 2026-01-05T00:00:00Z'
+          : 'not an ISO 8601 date-time with a zone, e.g. 2026-01-05T00:00:00Z',
+    });
   }),
-  exclude: z.array(z.string().min(1).max(500)).max(100).default([]),
+  exclude: excludeOption,
   jobs: jobsOption,
   progress: z.boolean().default(true),
 });

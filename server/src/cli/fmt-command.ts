@@ -13,14 +13,14 @@ import { checkNote } from '../core/check-note';
 import { formatNote } from '../core/service/format';
 import { readSnapshot, writeIfUnchanged, type BeforeRename } from '../node/atomic-write';
 import { listInputs, looksBinary, MAX_NOTE_BYTES, readNote, readProblem, utf8Problem } from './inputs';
-import { EXIT, HELP, parse, UsageError, validate, type Io } from './args';
+import { excludeOption, EXIT, HELP, parse, UsageError, validate, type Io } from './args';
 import { visible } from './visible';
 
 const fmtOptions = z.object({
   check: z.boolean().default(false),
   write: z.boolean().default(false),
   force: z.boolean().default(false),
-  exclude: z.array(z.string().min(1).max(500)).max(100).default([]),
+  exclude: excludeOption,
 }).refine((o) => !(o.check && o.write), { message: 'use either --check or --write, not both', path: ['check'] })
   // --force lets --write rewrite notes with syntax errors; elsewhere it would be silently ignored.
   .refine((o) => !o.force || o.write, { message: 'only applies to --write (it lets --write rewrite notes with syntax errors)', path: ['force'] });

@@ -13,13 +13,13 @@
  * on; inputs that hold no note at all give a one-line problem too, so a run pointed at the wrong
  * folder does not pass.
  */
-import { closeSync, existsSync, fstatSync, lstatSync, openSync, readdirSync, readFileSync, readlinkSync, readSync, realpathSync, statSync, type Stats } from 'node:fs';
+import { closeSync, constants, existsSync, fstatSync, lstatSync, openSync, readdirSync, readlinkSync, readSync, realpathSync, statSync, type Stats } from 'node:fs';
 import { isUtf8 } from 'node:buffer';
 import { basename, dirname, isAbsolute, join, normalize, relative, resolve, sep } from 'node:path';
 import ignore, { type Ignore } from 'ignore';
 import { globSync, isDynamicPattern, type FileSystemAdapter } from 'tinyglobby';
 import { CONFIG_FILE_NAME } from '../core/config';
-import { refuseEmptyPaths } from './args';
+import { globstarsIn, MAX_GLOBSTARS, refuseEmptyPaths } from './args';
 
 /** How a note read from standard input (`-`) is named in output. */
 export const STDIN_NAME = '<stdin>';
@@ -447,12 +447,26 @@ class IgnoreFiles {
     return state;
   }
 
-  /** The patterns of the folder's `.pneuignore`; null when it has none (or it cannot be read: it then excludes nothing). */
+  /**
+   * The patterns of the folder's `.pneuignore`; null when it has none (or it cannot be read, or is
+   * not a file: it then excludes nothing). Opened without waiting, and read only when it is a
+   * regular file: a `.pneuignore` that is a pipe nobody writes to would hold the run up forever,
+   * and one that is a link to /dev/zero would fill the memory.
+   */
   private patternsIn(folder: string): Ignore | null {
     let patterns = this.read.get(folder);
     if (patterns === undefined) {
+      patterns = null;
       try {
-        patterns = ignore().add(readFileSync(join(folder, IGNORE_FILE), 'utf8'));
+        const fd = openSync(join(folder, IGNORE_FILE), constants.O_RDONLY | constants.O_NONBLOCK);
+        try {
+          const stat = fstatSync(fd);
+          // A line with more `**` than `--exclude` takes is left out (see MAX_GLOBSTARS): a
+          // .pneuignore comes with the notes, and could otherwise hold a run up for hours.
+          if (stat.isFile()) patterns = ignore().add(readAll(fd, stat.size).toString('utf8').split(/\r?\n/).filter((line) => globstarsIn(line) <= MAX_GLOBSTARS));
+        } finally {
+          closeSync(fd);
+        }
       } catch {
         patterns = null;
       }
@@ -505,7 +519,8 @@ export function readNote(path: string, cwd: string, stdin: () => Buffer, options
         const stat = fstatSync(fd);
         if (stat.isDirectory()) return { path: shown, text: null, problem: 'is a folder' };
         if (stat.size > MAX_NOTE_BYTES) return { path: shown, text: null, problem: `too large to check (${(stat.size / 1048576).toFixed(1)} MB; the limit is ${MAX_NOTE_BYTES / 1048576} MB)` };
-        bytes = stat.isFile() ? readAll(fd, stat.size) : readFileSync(fd);
+        // Anything else (a pipe, a device such as /dev/zero) has no size to go by and may never end.
+        bytes = stat.isFile() ? readAll(fd, stat.size) : readUpTo(fd, MAX_NOTE_BYTES + 1);
       } finally {
         closeSync(fd);
       }
@@ -542,6 +557,24 @@ function readAll(fd: number, size: number): Buffer {
     read += n;
   }
   return read === size ? bytes : bytes.subarray(0, read);
+}
+
+/**
+ * The bytes of an open file read to its end, or the first `limit` of them: standard input and
+ * files that are not regular files (a pipe, a device) have no size to go by, and `/dev/zero` or
+ * `yes |` never end; a note longer than the limit is refused for its size anyway.
+ */
+export function readUpTo(fd: number, limit: number): Buffer {
+  const chunks: Buffer[] = [];
+  let total = 0;
+  while (total < limit) {
+    const chunk = Buffer.allocUnsafe(Math.min(1 << 16, limit - total));
+    const n = readSync(fd, chunk, 0, chunk.length, null);
+    if (n === 0) break;
+    chunks.push(n === chunk.length ? chunk : chunk.subarray(0, n));
+    total += n;
+  }
+  return Buffer.concat(chunks, total);
 }
 
 /** A NUL byte in the first 8 KiB marks a binary file (as git does). */

@@ -10,7 +10,7 @@ import { resolve } from 'node:path';
 import { isMainThread, parentPort, workerData } from 'node:worker_threads';
 import { z } from 'zod';
 import { checkNote } from '../core/check-note';
-import { CAUTION, EXIT, HELP, jobsOption, parse, refuseEmptyPaths, UsageError, validate, wholeNumberOption, type Io } from './args';
+import { CAUTION, excludeOption, EXIT, HELP, jobsOption, parse, refuseEmptyPaths, UsageError, validate, wholeNumberOption, type Io } from './args';
 import { ConfigReport, reportConfigProblems } from './config-report';
 import { renderCheckDocs } from '../core/checks/docs';
 import { replaceBetween, withGeneratedTables } from '../core/fields/docs';
@@ -18,7 +18,7 @@ import { COLUMNS_END, COLUMNS_START, renderColumnTable } from '../core/export/do
 import { colourWanted, paint, type Paint } from './colour';
 import { runExport, exportRenderer } from './export-command';
 import { runFmt } from './fmt-command';
-import { listInputs, readNote } from './inputs';
+import { listInputs, MAX_NOTE_BYTES, readNote, readUpTo } from './inputs';
 import { gather, type BatchDone, type WorkDone, type WorkItem } from './pool';
 import { CheckJsonWriter, countOutcome, jsonFileEntryOrProblem, writeCheckSarif, writeCheckText, type FileOutcome } from './render-check';
 import type { SeverityCounts } from './render-show';
@@ -79,7 +79,7 @@ const checkOptions = z.object({
   format: z.enum(['text', 'json', 'sarif']).default('text'),
   quiet: z.boolean().default(false),
   maxWarnings: wholeNumberOption(0, 1_000_000_000, 'expected a whole number from 0 to 1,000,000,000').optional(),
-  exclude: z.array(z.string().min(1).max(500)).max(100).default([]),
+  exclude: excludeOption,
   jobs: jobsOption,
   progress: z.boolean().default(true),
 });
@@ -218,7 +218,7 @@ if (!isMainThread && (workerData as { pneumarkWorker?: boolean } | null)?.pneuma
     env: process.env,
     stdout: process.stdout,
     stderr: process.stderr,
-    stdin: () => readFileSync(0),
+    stdin: () => readUpTo(0, MAX_NOTE_BYTES + 1),
   }).then((code) => {
     process.exitCode = code;
   });

@@ -267,7 +267,8 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     try {
       const raw: unknown = await connection.workspace.getConfiguration({ scopeUri: uri, section: 'pneumark' });
       const settings = readSettings(raw);
-      clientSettings.set(uri, settings);
+      // Kept only for a note still open (its close forgets them).
+      if (documents.get(uri)) clientSettings.set(uri, settings);
       return settings;
     } catch {
       return DEFAULT_CLIENT_SETTINGS;
@@ -527,6 +528,9 @@ export function startServer(connection: Connection, collector: IdleCollector = n
 
   documents.onDidOpen((e) => {
     void pullClientSettings(e.document.uri).then(() => {
+      // Closed (or closed and opened again) while its settings were asked for: nothing to do for
+      // this opening. Its folders would otherwise stay watched, and its state kept, for good.
+      if (documents.get(e.document.uri) !== e.document) return;
       guard('open', undefined, () => {
         // The note's folders are looked at afresh (a file may have been made where no watch
         // was, or while no open note needed the folder watched), then watched.

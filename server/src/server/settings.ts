@@ -35,6 +35,11 @@ export const DEFAULT_CLIENT_SETTINGS: ClientSettings = clientSettingsSchema.pars
  * An empty list stands for an empty object (the section or `hints`): Lua has one kind of table,
  * and Neovim sends an empty one as `[]`.
  */
+/** A whole number's bound in JavaScript, which zod's `int()` checks beside the setting's own bounds. */
+function beyondSafeInteger(issue: z.core.$ZodIssue): boolean {
+  return (issue.code === 'too_big' && Number(issue.maximum) === Number.MAX_SAFE_INTEGER) || (issue.code === 'too_small' && Number(issue.minimum) === Number.MIN_SAFE_INTEGER);
+}
+
 export function readClientSettings(raw: unknown): { settings: ClientSettings; problem: string | null; unknownChecks: string | null } {
   const source = isRecord(raw) ? raw : {};
   const problems: string[] = [];
@@ -42,7 +47,12 @@ export function readClientSettings(raw: unknown): { settings: ClientSettings; pr
     if (value === undefined || value === null) return undefined;
     const parsed = schema.safeParse(value, { error: settingProblem });
     if (parsed.success) return parsed.data;
-    problems.push(`pneumark.${key}: ${parsed.error.issues.map((i) => i.message).join(', ')}`);
+    // Each problem once (every item of a list may have the same), and not the bounds of a whole
+    // number in JavaScript (9007199254740991) beside the setting's own.
+    const issues = parsed.error.issues;
+    const own = issues.filter((i) => !beyondSafeInteger(i));
+    const messages = new Set((own.length > 0 ? own : issues).map((i) => i.message));
+    problems.push(`pneumark.${key}: ${[...messages].join(', ')}`);
     return undefined;
   };
 

@@ -7,7 +7,8 @@ export type ReadCheckAlias =
   | 'unit-not-allowed'
   | 'other-unit-likely'
   | 'unknown-word'
-  | 'duplicate-key';
+  | 'duplicate-key'
+  | 'bad-time';
 
 /** A problem met while reading a stated value; reported by the check with the same alias. */
 export interface ReadIssue {

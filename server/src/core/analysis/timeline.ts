@@ -33,6 +33,7 @@ import { FIELDS, type FieldDef } from '../fields/registry';
 import { sectionById, type SectionId } from '../fields/sections';
 import type { Settings } from '../settings';
 import type { ItemNode, LineNode, NoteTree, SectionLine, Span, TimepointLine } from '../syntax/tree';
+import { MAX_DAY } from '../syntax/parser';
 import { barometricFromAltitude } from './ambient';
 import { moveLineNames, shiftedLine, type InputValue, type LineShift, type Origin, type StatedValue, type Timepoint, type TimepointTime, type ValuesInForce } from './model';
 import type { ReadIssue } from './read-issues';
@@ -433,7 +434,16 @@ function processBlock(lines: readonly LineNode[], start: number, end: number, in
   let tpStart = 0;
   let tpTime: TimepointTime = START_TIME;
   if (first?.kind === 'timepoint') {
-    const time = timeOf(first, timeIn, index === 0);
+    let time = timeOf(first, timeIn, index === 0);
+    if (time.minutes !== null && time.minutes > MAX_DAY * 1440 && first.time) {
+      // Offsets (`@ +100000d` again and again) or clock times past midnight that go beyond what a
+      // note can span: no time, as for `@ day 100001` or `@ +100001d` written out.
+      issues.push({
+        check: 'bad-time', line: first.line, span: first.time.span, fixes: NONE,
+        message: `\`${first.time.text}\` takes this timepoint to day ${time.day}, beyond what a note can span (${MAX_DAY} days from day 1); it has no time.`,
+      });
+      time = new TimeAt(null, null);
+    }
     if (time.minutes !== null || time.day !== null) timeOut = time;
     tpLine = tpStart = first.line;
     tpLabel = labelOf(first);

@@ -9,7 +9,8 @@ import type { Severity } from '../types';
 
 const FORMAT_RULE = 'format rule (grammar/README.md)';
 
-function syntaxCheck(code: string, alias: SyntaxCheckAlias, title: string, severity: Severity, doc: CheckDoc): CheckDef {
+/** `alsoRead`: the check's alias is also one the timeline reports read issues under (a time it cannot hold). */
+function syntaxCheck(code: string, alias: SyntaxCheckAlias, title: string, severity: Severity, doc: CheckDoc, alsoRead?: ReadCheckAlias & SyntaxCheckAlias): CheckDef {
   const visit = (ctx: CheckContext, node: LineNode) => {
     if (node.issues.length === 0) return;
     for (const issue of node.issues) {
@@ -21,6 +22,10 @@ function syntaxCheck(code: string, alias: SyntaxCheckAlias, title: string, sever
     code, alias, title, severity, tags: ['syntax'], doc, source: FORMAT_RULE,
     run(ctx) {
       forHeaderLines(ctx, visit);
+      if (alsoRead === undefined) return;
+      for (const issue of ctx.analysis.timeline.readIssues) {
+        if (issue.check === alsoRead) ctx.report({ range: toRange(issue.line, issue.span), message: issue.message, fixes: issue.fixes.map((f) => lineFixToFix(issue.line, f)) });
+      }
     },
     runTimepoint(ctx) {
       forTimepointLines(ctx, visit);
@@ -64,15 +69,15 @@ export const decimalComma = syntaxCheck('PN103', 'decimal-comma', 'Decimal comma
 });
 
 export const badTime = syntaxCheck('PN104', 'bad-time', 'Unreadable time', 'error', {
-  fires: 'A timepoint line has no time, an impossible time of day, an unreadable offset, or a calendar date. As a warning: an offset split by a blank (`@ +2h 30m`), which reads as `+2h` with a label starting `30m`.',
+  fires: 'A timepoint line has no time, an impossible time of day, an unreadable offset, a calendar date, or a time beyond what a note can span (day 100000 written, or more than 100000 days from day 1 reached by offsets and clock times past midnight). As a warning: an offset split by a blank (`@ +2h 30m`), which reads as `+2h` with a label starting `30m`.',
   example: '@ 25:10 handover',
   fix: 'Write `@ day N HH:MM`, `@ HH:MM` or an offset such as `@ +2h30` (no blanks inside it; the quick fix joins a split one). Calendar dates are not part of the format: use relative days.',
-});
+}, 'bad-time');
 
 export const strayText = syntaxCheck('PN105', 'stray-text', 'Stray text', 'error', {
-  fires: 'A number (or other text) appears where a key was expected. At information level: a full stop that ends a line of items (`hr 80.`, read as `hr 80`), or a comma that separates nothing (at the start of a line, right after its section word or `@`, a second one between two items, where a value may be missing, or between the time and the label of a timepoint); the line is read without it.',
+  fires: 'A number (or other text) appears where a key was expected, or a number is typed with digits other than 0–9 (fullwidth `８０`, Arabic-Indic `٨٠`), which are not read as a number. At information level: a full stop that ends a line of items (`hr 80.`, read as `hr 80`), or a comma that separates nothing (at the start of a line, right after its section word or `@`, a second one between two items, where a value may be missing, or between the time and the label of a timepoint); the line is read without it.',
   example: 'vitals hr 118 120',
-  fix: 'Give the number its key (`rr 20`), or remove it. A full stop or a comma that separates nothing has a fix that removes it, also for the whole note.',
+  fix: 'Give the number its key (`rr 20`), or remove it; write a number in the digits 0–9 (a fix does it). A full stop or a comma that separates nothing has a fix that removes it, also for the whole note.',
 });
 
 export const badShorthand = syntaxCheck('PN106', 'bad-shorthand', 'Unreadable shorthand gas', 'error', {

@@ -285,8 +285,10 @@ function parseAnchor(anchor: string): Anchor | string {
   const [year, month, day, hour, minute, second] = [m[1], m[2], m[3], m[4], m[5], m[6] ?? '0'].map(Number) as [number, number, number, number, number, number];
   const ms = Number((m[7] ?? '').padEnd(3, '0').slice(0, 3));
   const zone = m[8] ?? 'Z';
-  const wallMs = Date.UTC(year, month - 1, day, hour, minute, second, ms);
-  const back = new Date(wallMs);
+  // `Date.UTC` reads years 0 to 99 as 1900 to 1999: the year is set on its own.
+  const back = new Date(Date.UTC(2000, 0, 1, hour, minute, second, ms));
+  back.setUTCFullYear(year, month - 1, day);
+  const wallMs = back.getTime();
   // Offsets run from -14:00 to +14:00, as FHIR's dateTime pattern has them (+14:30 is no zone, and not FHIR).
   const zoneHours = Number(zone.slice(1, 3));
   const zoneMinutes = Number(zone.slice(4, 6));

@@ -36,10 +36,11 @@ export function codeActions(result: NoteResult, range: Range): ActionInfo[] {
   const actions: ActionInfo[] = [];
 
   // (a) fixes of the findings here
+  const checks = new FixChecks(result);
   for (const f of result.findings) {
     if (!touches(f.range, range)) continue;
     for (const fix of f.fixes) {
-      if (!keepsValues(result, fix)) continue;
+      if (!checks.keeps(fix)) continue;
       actions.push({ title: fix.title, kind: 'quickfix', edits: [...fix.edits], findingCodes: [f.code], resolves: [f], ...(fix.preferred ? { preferred: true } : {}) });
     }
   }
@@ -172,6 +173,35 @@ export function keepsValues(result: NoteResult, fix: Fix): boolean {
 }
 
 /**
+ * At most this many fixes of one line are checked with `keepsValues` in one request, and so offered:
+ * each check parses the whole line again, so a long line with thousands of fixable findings (a line
+ * of 16 KB with doubled commas or no-break spaces all along it) took seconds at every move of the
+ * cursor, the time growing with the square of the line's length. Once the fixes offered are
+ * applied, the next ones on the line are.
+ */
+export const FIX_CHECKS_PER_LINE = 32;
+
+/** `keepsValues` for the fixes of one request, at most `FIX_CHECKS_PER_LINE` a line. */
+class FixChecks {
+  private readonly perLine = new Map<number, number>();
+
+  constructor(private readonly result: NoteResult) {}
+
+  keeps(fix: Fix): boolean {
+    const edits = fix.edits;
+    for (let i = 0; i < edits.length; i++) {
+      const line = edits[i]!.range.start.line;
+      if (edits[i]!.range.end.line !== line) continue; // multi-line fixes are not parsed (see keepsValues)
+      const n = this.perLine.get(line) ?? 0;
+      if (n >= FIX_CHECKS_PER_LINE) return false;
+      // A fix with several edits on one line counts once for it.
+      if (i === 0 || !edits.slice(0, i).some((e) => e.range.start.line === line)) this.perLine.set(line, n + 1);
+    }
+    return keepsValues(this.result, fix);
+  }
+}
+
+/**
  * Whether the fixed line has more problems of some kind than the line had: a fix that glues a
  * section word to a number (`patient,7,35` → `patient7,35`), that names a section for a key with
  * no value (`lac` → `abg lac`) or whose values it cannot read (`ht 07:40` → `patient ht 07:40`),
@@ -294,9 +324,10 @@ const FIX_ALL = new WeakMap<NoteResult, FixAll>();
 function fixAllOf(result: NoteResult): FixAll {
   let known = FIX_ALL.get(result);
   if (!known) {
+    const checks = new FixChecks(result);
     const withSafeFix = result.findings.filter((f) => {
       const fix = preferredFix(f);
-      return fix !== undefined && keepsValues(result, fix);
+      return fix !== undefined && checks.keeps(fix);
     });
     known = { withSafeFix, byCode: new Map(), all: null };
     FIX_ALL.set(result, known);

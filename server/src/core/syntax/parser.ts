@@ -707,8 +707,12 @@ function splitOffset(body: string, offset: Word, next: Word | undefined, issues:
   });
 }
 
-/** The last day a note can name (`@ day 100000`), and the longest offset: about 270 years, far beyond any note, and kept exactly by a number. */
-const MAX_DAY = 100_000;
+/**
+ * The last day a note can name (`@ day 100000`), and the longest offset: about 270 years, far
+ * beyond any note, and kept exactly by a number. The timeline holds timepoints that offsets or
+ * clock times take past it to the same limit.
+ */
+export const MAX_DAY = 100_000;
 const MAX_OFFSET_MINUTES = MAX_DAY * 1440;
 
 function offsetMinutes(text: string, withinLarger: boolean): number | null {
@@ -896,6 +900,50 @@ function hasSlash(word: Word): boolean {
 }
 
 /** Whether a chunk can be a key: keys start with a letter (any script, so a misspelt key is still named). */
+const DECIMAL_DIGIT = /^\p{Nd}$/u;
+
+function isDecimalDigit(code: number): boolean {
+  return DECIMAL_DIGIT.test(String.fromCodePoint(code));
+}
+
+/** Marks written between such digits: fullwidth `．` `，` `／`, the Arabic decimal separator `٫`. */
+const OTHER_MARKS: Readonly<Record<number, string>> = { 0xff0e: '.', 0xff0c: ',', 0xff0f: '/', 0x066b: '.' };
+const ENDING_MARKS = '.,/';
+
+/**
+ * A number written at the start of `text` with decimal digits of another script (fullwidth
+ * `８０`, Arabic-Indic `٨٠`, Devanagari `८०`), with ASCII digits, full stops, commas and slashes
+ * among them (`7.4/40/٩٠`): the number in the digits 0–9, and how many UTF-16 units it takes in `text`. Null when
+ * `text` does not start with a digit, or holds only ASCII ones.
+ */
+function asciiNumberOf(text: string): { readonly text: string; readonly length: number } | null {
+  let out = '';
+  let other = false;
+  let at = 0;
+  while (at < text.length) {
+    const c = text.codePointAt(at)!;
+    const size = c > 0xffff ? 2 : 1;
+    if ((c >= 0x30 && c <= 0x39) || ((c === 0x2e || c === 0x2c || c === 0x2f) && at > 0)) out += String.fromCharCode(c);
+    else if (at > 0 && OTHER_MARKS[c] !== undefined) {
+      out += OTHER_MARKS[c];
+      other = true;
+    } else if (c > 0x7f && isDecimalDigit(c)) {
+      // Unicode writes each script's digits 0 to 9 in a row (some scripts several rows in a run): the digit's value is its place in the run.
+      let zero = c;
+      while (isDecimalDigit(zero - 1)) zero--;
+      out += String((c - zero) % 10);
+      other = true;
+    } else break;
+    at += size;
+  }
+  // A full stop, comma or slash that ends it is not part of the number.
+  let end = out.length;
+  while (end > 0 && ENDING_MARKS.includes(out[end - 1]!)) end--;
+  at -= out.length - end;
+  out = out.slice(0, end);
+  return other ? { text: out, length: at } : null;
+}
+
 function startsLikeKey(text: string): boolean {
   const c = text.charCodeAt(0);
   const lower = c | 0x20;
@@ -1366,6 +1414,18 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
       continue;
     }
     if (!startsLikeKey(chunk.text)) {
+      const meant = asciiNumberOf(chunk.text);
+      if (meant !== null) {
+        // `hr ８０`, `hr ٨٠`: a number typed with digits of another script (a keyboard or an input method).
+        const span = { start: chunk.start, end: chunk.start + meant.length };
+        issues.push({
+          check: 'stray-text', span,
+          message: `\`${chunk.text.slice(0, meant.length)}\` is written with digits other than 0–9, which are not read as a number; write \`${meant.text}\`.`,
+          fixes: [{ title: `Write \`${meant.text}\``, edits: [{ span, newText: meant.text }], preferred: true }],
+        });
+        i++;
+        continue;
+      }
       // `/`, `-`, `(80)`: punctuation is never a key (and a did-you-mean would turn it into one).
       issues.push({ check: 'stray-text', span: chunk.span, message: `\`${chunk.text}\` is not a key; write items as \`key value\`, e.g. \`hr 118\`.`, fixes: [] });
       i++;
