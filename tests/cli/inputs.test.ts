@@ -533,14 +533,15 @@ describe('patterns with many `**`', () => {
     expect(two.err()).toContain('excluded by --exclude');
   });
 
-  it('a .pneuignore line with more than two is left out; its other lines apply', async () => {
+  it('a .pneuignore line with more than two is left out, and said so (exit 2); its other lines apply', async () => {
     const dir = tempDir();
     mkdirSync(join(dir, deep), { recursive: true });
     writeFileSync(join(dir, deep, 'n.pneu'), alarming);
     writeFileSync(join(dir, deep, 'other.pneu'), alarming);
-    writeFileSync(join(dir, '.pneuignore'), `${'**/d/'.repeat(3)}n.pneu\n**/d/**/other.pneu\n`);
+    writeFileSync(join(dir, '.pneuignore'), `# deep notes\n${'**/d/'.repeat(3)}n.pneu\n**/d/**/other.pneu\n`);
     const folder = io(dir);
-    expect(await run(['check', '.'], folder)).toBe(1);
+    expect(await run(['check', '.'], folder)).toBe(2);
     expect(reported(folder.out())).toEqual([`${deep}/n.pneu`]);
+    expect(folder.err()).toBe('pneumark: .pneuignore: line 2 holds more than 2 `**`, which makes matching take too long on deep folders; it is not used, so the notes it names are read\n');
   });
 });

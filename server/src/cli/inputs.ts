@@ -115,7 +115,8 @@ export function listInputs(args: readonly string[], cwd: string, exclude: readon
       add(isAbsolute(arg) ? toPosix(relative(cwd, abs)) || toPosix(abs) : toPosix(normalize(arg)), from);
     }
   }
-  const excludedBy = exclusions(cwd, exclude);
+  const ignoreFiles = new IgnoreFiles(cwd);
+  const excludedBy = exclusions(cwd, exclude, ignoreFiles);
   const kept: string[] = [];
   for (const [path, by] of found) {
     const source = excludedBy(path, by[0]!.root);
@@ -128,6 +129,10 @@ export function listInputs(args: readonly string[], cwd: string, exclude: readon
     const shown = toPosix(relative(cwd, folder)) || '.';
     if (excludedBy(`${shown === '.' ? '' : `${shown}/`}note${NOTE_EXTENSION}`, root) !== null) continue;
     problems.push({ path: shown, text: null, problem: `folder cannot be read (${code === 'EACCES' || code === 'EPERM' ? 'permission denied' : code}); the notes in it are not read` });
+  }
+  // A pattern left out excludes nothing it says: the notes it names would be read unnoticed.
+  for (const { file, line } of ignoreFiles.skipped) {
+    problems.push({ path: toPosix(relative(cwd, file)), text: null, problem: `line ${line} holds more than ${MAX_GLOBSTARS} \`**\`, which makes matching take too long on deep folders; it is not used, so the notes it names are read` });
   }
   const files = onePathPerNote(kept.sort(comparePaths), cwd);
   if (files.length === 0 && !stdin && problems.length === 0) {
@@ -297,8 +302,7 @@ function comparePaths(a: string, b: string): number {
  * (for a file, its folder; for a pattern, its fixed part), so `check ../notes --exclude old.pneu`
  * leaves out `../notes/old.pneu`. `.pneuignore` files are those of `IgnoreFiles`.
  */
-function exclusions(cwd: string, exclude: readonly string[]): (path: string, root: string) => ExclusionSource | null {
-  const ignoreFiles = new IgnoreFiles(cwd);
+function exclusions(cwd: string, exclude: readonly string[], ignoreFiles: IgnoreFiles): (path: string, root: string) => ExclusionSource | null {
   const { paths, patterns } = splitExclusions(cwd, exclude);
   // No pattern excludes nothing: no need to ask of each note.
   const fromArgs: Ignore | null = patterns.length === 0 ? null : ignore().add(patterns);
@@ -368,6 +372,8 @@ interface FolderState {
  */
 class IgnoreFiles {
   private readonly read = new Map<string, Ignore | null>();
+  /** Lines left out of the `.pneuignore` files read, for holding more `**` than `MAX_GLOBSTARS`: file and 1-based line. */
+  readonly skipped: { readonly file: string; readonly line: number }[] = [];
   private readonly folders = new Map<string, FolderState>();
   /** The state of a note's folder by how the note was reached (the top and the outer file follow from that). */
   private readonly noteFolders = new Map<string, FolderState>();
@@ -463,7 +469,11 @@ class IgnoreFiles {
           const stat = fstatSync(fd);
           // A line with more `**` than `--exclude` takes is left out (see MAX_GLOBSTARS): a
           // .pneuignore comes with the notes, and could otherwise hold a run up for hours.
-          if (stat.isFile()) patterns = ignore().add(readAll(fd, stat.size).toString('utf8').split(/\r?\n/).filter((line) => globstarsIn(line) <= MAX_GLOBSTARS));
+          if (stat.isFile()) {
+            const lines = readAll(fd, stat.size).toString('utf8').split(/\r?\n/);
+            lines.forEach((line, i) => { if (globstarsIn(line) > MAX_GLOBSTARS) this.skipped.push({ file: join(folder, IGNORE_FILE), line: i + 1 }); });
+            patterns = ignore().add(lines.filter((line) => globstarsIn(line) <= MAX_GLOBSTARS));
+          }
         } finally {
           closeSync(fd);
         }
