@@ -7,7 +7,7 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { checkNote, type NoteResult } from '../../server/src/core/check-note';
 import type { StatedValue } from '../../server/src/core/analysis/model';
-import { within } from '../../server/src/core/analysis/bounds';
+import { within, withinAsWritten } from '../../server/src/core/analysis/bounds';
 import { fieldById } from '../../server/src/core/fields/registry';
 import { applyEdits, codeActions, convertNoteUnits, editsOverlap, keepsValues, type ActionInfo, type GasUnit } from '../../server/src/core/service';
 import { FIX_CHECKS_PER_LINE } from '../../server/src/core/service/actions';
@@ -479,7 +479,8 @@ describe('action properties', () => {
 
   const isOrdinary = (v: StatedValue) => {
     const f = fieldById(v.fieldId)!;
-    return v.value !== null && !v.unitDoubt && within(v.value, f.soft) && within(v.value, f.hard);
+    // Usual as written: `pco2 20 kPa` (150.01 mmHg) is PaCO2's usual maximum at the precision written (tests/core/usual-as-written.test.ts).
+    return v.value !== null && !v.unitDoubt && withinAsWritten(v.value, f.soft, f, v.readUnit, v.item.value?.text ?? null) && within(v.value, f.hard);
   };
 
   /** Gas pressures a note states, in order. */
