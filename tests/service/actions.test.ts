@@ -528,7 +528,7 @@ describe('action properties', () => {
     return converted;
   }
 
-  it(`convertNoteUnits reads back to the same values within rounding, mmHg to kPa and kPa to mmHg, and there and back gives the numbers written (${ACTION_RUNS} generated notes)`, () => {
+  it(`convertNoteUnits reads back to the same values within rounding, mmHg to kPa and kPa to mmHg, and there and back gives the numbers written (${CONVERSION_RUNS} generated notes)`, () => {
     fc.assert(fc.property(notes, fc.constantFrom<[GasUnit, GasUnit]>(['kPa', 'mmHg'], ['mmHg', 'kPa']), (text, [there, back]) => {
       const converted = convertedKeepingValues(text, there);
       const returned = convertedKeepingValues(converted, back);
