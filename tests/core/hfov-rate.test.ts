@@ -50,6 +50,11 @@ describe('Hz as a unit of the set rate', () => {
     expect(columns).toContain('vent_rate_per_min');
     const [row] = timepointRows('n.pneu', checkNote(text), { redactProse: false, shiftDays: 0 });
     expect(row?.['vent_rate_per_min']).toBe(300);
+    // Minute ventilation is left empty in HFOV (its column says so).
+    const [withVt] = timepointRows('n.pneu', checkNote('@ 08:00\nvent mode HFOV, rate 5 Hz, vt 100 mL, fio2 0.6'), { redactProse: false, shiftDays: 0 });
+    expect(withVt?.['vent_rate_per_min']).toBe(300);
+    expect(withVt?.['minute_ventilation_L_min'] ?? null).toBeNull();
+    expect(exportColumns().find((c) => c.name === 'minute_ventilation_L_min')?.description).toMatch(/empty in HFOV/);
   });
 
   it('is impossible above 20 Hz (1200 /min)', () => {
