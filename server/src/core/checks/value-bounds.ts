@@ -58,6 +58,9 @@ function usualBounds(field: FieldDef, barometricMmhg: number | null, at: Timepoi
  */
 export const HFOV_USUAL_RATE_PER_MIN: Bounds = { min: 180, max: 900 };
 
+const HZ = unitById('Hz')!;
+const PER_MIN = unitById('/min')!;
+
 /** Whether the mode in force at a timepoint is high-frequency oscillation. */
 function inHfov(at: TimepointContext): boolean {
   return at.timepoint.values.get('mode')?.stated.word === 'HFOV';
@@ -73,7 +76,8 @@ function rateHint(s: StatedValue, at: TimepointContext | null): { text: string; 
   const written = s.item.number;
   const value = s.item.value;
   if (inHfov(at)) {
-    if (s.readUnit !== '/min' || written === null || !value || !within(written * 60, HFOV_USUAL_RATE_PER_MIN)) return null;
+    const inHz = written === null ? null : convert(written, HZ, PER_MIN);
+    if (s.readUnit !== '/min' || inHz === null || !value || !within(inHz, HFOV_USUAL_RATE_PER_MIN)) return null;
     const unitToken = s.item.unit;
     const edit = unitToken ? { range: toRange(s.line, unitToken.span), newText: 'Hz' } : { range: toRange(s.line, { start: value.span.end, end: value.span.end }), newText: ' Hz' };
     return { text: ` In HFOV the rate is a frequency: ${value.text} Hz would be usual.`, fix: { title: `Write ${value.text} Hz`, edits: [edit] } };
@@ -212,7 +216,7 @@ export const unusualValue = defineCheck({
   severity: 'warning',
   tags: ['plausibility'],
   doc: {
-    fires: 'A value is possible but outside the usual (soft) bounds of its field: worth a second look at the unit or the transcription. Low arterial gas pressures are not flagged where the barometric pressure is below 500 mmHg, since they are real at extreme altitude. A tidal volume is usual from 2 mL per kg of body size (the smaller of the weight and the predicted body weight in force), or from 50 mL where the note gives neither; in HFOV, which moves 1–3 mL/kg a breath, it has no usual minimum. In HFOV the set rate is the oscillation frequency, usual from 3 to 15 Hz (180–900 /min) rather than at most 60 /min: a number written bare or in /min that is such a frequency in Hz (`rate 5`) is reported with `Hz` offered; a rate written in Hz in another mode is reported where it is above 60 /min (1 Hz), with a word that Hz is usual in HFOV. A number written in another unit than its field\'s own is compared at the precision written: `pco2 20.0 kPa` is 150.01 mmHg, yet to a tenth of a kPa it is the usual maximum of 150 mmHg, and is not reported. A saturation written as a fraction with no unit (`spo2 0.94`) is reported with the percentage offered, and is not used until it is rewritten.',
+    fires: 'A value is possible but outside the usual (soft) bounds of its field: worth a second look at the unit or the transcription. Low arterial gas pressures are not flagged where the barometric pressure is below 500 mmHg, since they are real at extreme altitude. A tidal volume is usual from 2 mL per kg of body size (the smaller of the weight and the predicted body weight in force), or from 50 mL where the note gives neither; in HFOV, which moves 1–3 mL/kg a breath, it has no usual minimum. In HFOV the set rate is the oscillation frequency, usual from 3 to 15 Hz (180–900 /min) rather than at most 60 /min: a number written bare or in /min that is such a frequency in Hz (`rate 5`) is reported with `Hz` offered; a rate written in Hz in another mode is reported where it is above 60 /min (1 Hz), with a word that Hz is usual in HFOV, and /min offered where the number is usual in /min (`rate 14 Hz` in VC). A number written in another unit than its field\'s own is compared at the precision written: `pco2 20.0 kPa` is 150.01 mmHg, yet to a tenth of a kPa it is the usual maximum of 150 mmHg, and is not reported. A saturation written as a fraction with no unit (`spo2 0.94`) is reported with the percentage offered, and is not used until it is rewritten.',
     example: 'vitals hr 236',
     fix: 'Confirm the value; if it is right, the warning can stay (or the check can be switched off in settings). Where the number is usual in the field\'s other unit (`vt 0.45 mL`, meant as L), a quick fix writes that unit.',
   },
@@ -241,12 +245,15 @@ export const unusualValue = defineCheck({
     if (!outOfBounds(stated, soft) || (stated.value !== null && withinAsWritten(stated.value, soft, field, stated.readUnit, stated.item.number === null ? null : stated.item.value?.text ?? null))) return;
     // A unit written in which the number is usual (`vt 0.45 mL`, meant as L) is offered, not preferred:
     // the value is possible as written.
+    // A set rate under HFOV is offered Hz (its hint says why); one in Hz under another mode is
+    // told that Hz belongs to HFOV, and offered /min where the number is usual there.
     const hint = rateHint(stated, at);
-    const other = hint ? (hint.fix ? { unit: 'Hz', fix: hint.fix } : null) : otherUnitFix(field, stated, soft);
+    const other = hint?.fix ? { unit: 'Hz', fix: hint.fix } : otherUnitFix(field, stated, soft);
+    const otherText = hint?.fix ? '' : other ? ` In ${other.unit} it would be usual.` : '';
     ctx.report({
       range: toRange(stated.line, stated.item.value?.span ?? stated.item.span),
       // pH has no unit to check.
-      message: `${asWritten(field, stated)} is unusual (usually ${describe(soft ?? {}, field, stated)}): check ${unitSuffix(field, stated) ? 'the unit and ' : ''}the transcription.${hint ? hint.text : other ? ` In ${other.unit} it would be usual.` : ''}`,
+      message: `${asWritten(field, stated)} is unusual (usually ${describe(soft ?? {}, field, stated)}): check ${unitSuffix(field, stated) ? 'the unit and ' : ''}the transcription.${hint?.text ?? ''}${otherText}`,
       ...(other ? { fixes: [other.fix] } : {}),
     });
   }),
