@@ -16,6 +16,7 @@ export function decimalsFor(unitId: string, fallback: number): number {
   if (unitId === 'fraction') return 2;
   if (unitId === 'F' || unitId === 'C') return 1;
   if (unitId === 'g/L') return 0;
+  if (unitId === 'Hz') return 1;
   return fallback;
 }
 

@@ -1,7 +1,8 @@
 /**
  * Entry of the bundled language server (dist/server.js). The transport comes from the command
  * line: `--stdio` (as the VS Code extension and most editors start it) or `--node-ipc`.
- * On stdio the messages are written by our ASCII JSON encoder (see wire.ts). Logging goes to
+ * On stdio the messages are written by our ASCII JSON encoder (see wire.ts). On both, requests
+ * after a shutdown request are refused with InvalidRequest (shutdown-gate.ts). Logging goes to
  * the connection's console, never to stdout, which carries the protocol.
  */
 import { format } from 'node:util';
@@ -10,15 +11,18 @@ import { keepYoungGenerationSmall } from './memory';
 // Before anything sizable is allocated (see memory.ts).
 keepYoungGenerationSmall();
 
-import { createConnection, ProposedFeatures, StreamMessageReader, StreamMessageWriter, type Connection } from 'vscode-languageserver/node';
+import { createConnection, IPCMessageReader, IPCMessageWriter, ProposedFeatures, StreamMessageReader, StreamMessageWriter, type Connection } from 'vscode-languageserver/node';
 import { startServer } from './server';
+import { ShutdownGate } from './shutdown-gate';
 import { asciiJsonEncoder } from './wire';
 
 function stdioConnection(): Connection {
+  // Requests after a shutdown request are refused there, for every handler (see shutdown-gate.ts).
+  const gate = new ShutdownGate();
   const connection = createConnection(
     ProposedFeatures.all,
-    new StreamMessageReader(process.stdin),
-    new StreamMessageWriter(process.stdout, { contentTypeEncoder: asciiJsonEncoder }),
+    gate.readerFor(new StreamMessageReader(process.stdin)),
+    gate.writerFor(new StreamMessageWriter(process.stdout, { contentTypeEncoder: asciiJsonEncoder })),
   );
   // What the library does for `--stdio`, which it skips when given a reader and a writer: stray
   // console output goes to the client's log instead of corrupting the protocol stream, and the
@@ -37,4 +41,14 @@ function stdioConnection(): Connection {
   return connection;
 }
 
-startServer(process.argv.includes('--stdio') ? stdioConnection() : createConnection(ProposedFeatures.all));
+/** Over Node's IPC channel (`--node-ipc`), with the same gate as on stdio. */
+function ipcConnection(): Connection {
+  const gate = new ShutdownGate();
+  return createConnection(ProposedFeatures.all, gate.readerFor(new IPCMessageReader(process)), gate.writerFor(new IPCMessageWriter(process)));
+}
+
+startServer(
+  process.argv.includes('--stdio') ? stdioConnection()
+    : process.argv.includes('--node-ipc') ? ipcConnection()
+      : createConnection(ProposedFeatures.all),
+);

@@ -44,10 +44,47 @@ function usualBounds(field: FieldDef, barometricMmhg: number | null, at: Timepoi
   const bounds = softBoundsAt(field, barometricMmhg, field.id === 'vt' && at !== null ? bodySizeKg(at) : null);
   // High-frequency oscillation moves 1–3 mL/kg a breath, below any usual minimum of conventional
   // breaths (common practice, no source): there a tidal volume keeps only its usual maximum.
-  if (field.id === 'vt' && at !== null && bounds?.min !== undefined && at.timepoint.values.get('mode')?.stated.word === 'HFOV') {
+  if (field.id === 'vt' && at !== null && bounds?.min !== undefined && inHfov(at)) {
     return bounds.max === undefined ? {} : { max: bounds.max };
   }
+  // An oscillator's rate is its frequency, 3–15 Hz, far above any rate of conventional breaths.
+  if (field.id === 'vent_rate' && at !== null && inHfov(at)) return HFOV_USUAL_RATE_PER_MIN;
   return bounds;
+}
+
+/**
+ * The usual set rate in HFOV, /min: an oscillation frequency of 3 to 15 Hz (180–900 /min; common
+ * practice, from memory), in place of the usual maximum of 60 /min of conventional breaths.
+ */
+export const HFOV_USUAL_RATE_PER_MIN: Bounds = { min: 180, max: 900 };
+
+const HZ = unitById('Hz')!;
+const PER_MIN = unitById('/min')!;
+
+/** Whether the mode in force at a timepoint is high-frequency oscillation. */
+function inHfov(at: TimepointContext): boolean {
+  return at.timepoint.values.get('mode')?.stated.word === 'HFOV';
+}
+
+/**
+ * For an unusual set rate: in HFOV, a number written bare or in /min that is a usual frequency
+ * in Hz (`rate 5`, meant as 5 Hz) is offered Hz; outside HFOV, a rate written in Hz is said to be
+ * usual there (the mode may be missing or mistyped).
+ */
+function rateHint(s: StatedValue, at: TimepointContext | null): { text: string; fix: Fix | null } | null {
+  if (s.fieldId !== 'vent_rate' || at === null) return null;
+  const written = s.item.number;
+  const value = s.item.value;
+  if (inHfov(at)) {
+    const inHz = written === null ? null : convert(written, HZ, PER_MIN);
+    if (s.readUnit !== '/min' || inHz === null || !value || !within(inHz, HFOV_USUAL_RATE_PER_MIN)) return null;
+    const unitToken = s.item.unit;
+    const edit = unitToken ? { range: toRange(s.line, unitToken.span), newText: 'Hz' } : { range: toRange(s.line, { start: value.span.end, end: value.span.end }), newText: ' Hz' };
+    return { text: ` In HFOV the rate is a frequency: ${value.text} Hz would be usual.`, fix: { title: `Write ${value.text} Hz`, edits: [edit] } };
+  }
+  if (s.readUnit !== 'Hz') return null;
+  const mode = at.timepoint.values.get('mode')?.stated.word ?? null;
+  return { text: ` A rate in Hz is usual in HFOV; the mode in force here is ${mode === null ? 'not stated' : mode}.`, fix: null };
 }
 
 /**
@@ -179,7 +216,7 @@ export const unusualValue = defineCheck({
   severity: 'warning',
   tags: ['plausibility'],
   doc: {
-    fires: 'A value is possible but outside the usual (soft) bounds of its field: worth a second look at the unit or the transcription. Low arterial gas pressures are not flagged where the barometric pressure is below 500 mmHg, since they are real at extreme altitude. A tidal volume is usual from 2 mL per kg of body size (the smaller of the weight and the predicted body weight in force), or from 50 mL where the note gives neither; in HFOV, which moves 1–3 mL/kg a breath, it has no usual minimum. A number written in another unit than its field\'s own is compared at the precision written: `pco2 20.0 kPa` is 150.01 mmHg, yet to a tenth of a kPa it is the usual maximum of 150 mmHg, and is not reported. A saturation written as a fraction with no unit (`spo2 0.94`) is reported with the percentage offered, and is not used until it is rewritten.',
+    fires: 'A value is possible but outside the usual (soft) bounds of its field: worth a second look at the unit or the transcription. Low arterial gas pressures are not flagged where the barometric pressure is below 500 mmHg, since they are real at extreme altitude. A tidal volume is usual from 2 mL per kg of body size (the smaller of the weight and the predicted body weight in force), or from 50 mL where the note gives neither; in HFOV, which moves 1–3 mL/kg a breath, it has no usual minimum. In HFOV the set rate is the oscillation frequency, usual from 3 to 15 Hz (180–900 /min) rather than at most 60 /min: a number written bare or in /min that is such a frequency in Hz (`rate 5`) is reported with `Hz` offered; a rate written in Hz in another mode is reported where it is above 60 /min (1 Hz), with a word that Hz is usual in HFOV, and /min offered where the number is usual in /min (`rate 14 Hz` in VC). A number written in another unit than its field\'s own is compared at the precision written: `pco2 20.0 kPa` is 150.01 mmHg, yet to a tenth of a kPa it is the usual maximum of 150 mmHg, and is not reported. A saturation written as a fraction with no unit (`spo2 0.94`) is reported with the percentage offered, and is not used until it is rewritten.',
     example: 'vitals hr 236',
     fix: 'Confirm the value; if it is right, the warning can stay (or the check can be switched off in settings). Where the number is usual in the field\'s other unit (`vt 0.45 mL`, meant as L), a quick fix writes that unit.',
   },
@@ -187,8 +224,9 @@ export const unusualValue = defineCheck({
   ...valueCheck((ctx, stated, barometricMmhg, at) => {
     const field = stated.field;
     // Most values are within the usual bounds, which a low barometric pressure only widens: asked
-    // first. A tidal volume's usual minimum follows the body size, which may raise it: asked on.
-    if (!field.soft || (!outOfBounds(stated, field.soft) && field.id !== 'vt')) return;
+    // first. A tidal volume's usual minimum follows the body size, which may raise it, and a set
+    // rate's the mode (HFOV): asked on.
+    if (!field.soft || (!outOfBounds(stated, field.soft) && field.id !== 'vt' && field.id !== 'vent_rate')) return;
     if (stated.value !== null && stated.item.number !== null && isSaturationFraction(field, stated.item.number, stated.item)) {
       const written = stated.item.value!;
       const percent = formatNumber(stated.item.number * 100, Math.max(0, writtenDecimals(written.text) - 2));
@@ -207,11 +245,15 @@ export const unusualValue = defineCheck({
     if (!outOfBounds(stated, soft) || (stated.value !== null && withinAsWritten(stated.value, soft, field, stated.readUnit, stated.item.number === null ? null : stated.item.value?.text ?? null))) return;
     // A unit written in which the number is usual (`vt 0.45 mL`, meant as L) is offered, not preferred:
     // the value is possible as written.
-    const other = otherUnitFix(field, stated, soft);
+    // A set rate under HFOV is offered Hz (its hint says why); one in Hz under another mode is
+    // told that Hz belongs to HFOV, and offered /min where the number is usual there.
+    const hint = rateHint(stated, at);
+    const other = hint?.fix ? { unit: 'Hz', fix: hint.fix } : otherUnitFix(field, stated, soft);
+    const otherText = hint?.fix ? '' : other ? ` In ${other.unit} it would be usual.` : '';
     ctx.report({
       range: toRange(stated.line, stated.item.value?.span ?? stated.item.span),
       // pH has no unit to check.
-      message: `${asWritten(field, stated)} is unusual (usually ${describe(soft ?? {}, field, stated)}): check ${unitSuffix(field, stated) ? 'the unit and ' : ''}the transcription.${other ? ` In ${other.unit} it would be usual.` : ''}`,
+      message: `${asWritten(field, stated)} is unusual (usually ${describe(soft ?? {}, field, stated)}): check ${unitSuffix(field, stated) ? 'the unit and ' : ''}the transcription.${hint?.text ?? ''}${otherText}`,
       ...(other ? { fixes: [other.fix] } : {}),
     });
   }),

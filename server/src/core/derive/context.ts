@@ -317,6 +317,15 @@ export class DeriveContext {
     return mode !== null && MODES_WITH_SET_BREATHS.has(mode.word) ? ZERO_SET_RATE : null;
   }
 
+  /**
+   * Where the mode in force is HFOV: the outcome of a value computed from the set rate as a rate
+   * of breaths (minute ventilation VT × rate, mechanical power, the ventilatory ratio), which an
+   * oscillator's frequency is not; else null.
+   */
+  oscillation(): Outcome | null {
+    return this.word('mode')?.word === 'HFOV' ? IN_HFOV : null;
+  }
+
   /** PEEP in force: the ventilator's, else EPAP (NIV), else the CPAP level. */
   peepLike(): Term | null {
     return this.field('peep', 'PEEP') ?? this.field('epap', 'EPAP') ?? this.field('cpap_level', 'CPAP');
@@ -400,6 +409,7 @@ function usesCarried(terms: readonly Term[], c: DeriveContext): boolean {
 const VENT_SETTINGS: readonly string[] = ['mode', 'vt', 'vent_rate', 'peep', 'pressure_support'];
 
 const NOT_IN_DOMAIN: Outcome = { kind: 'na', reason: 'the inputs are outside the range where the formula holds' };
+const IN_HFOV: Outcome = { kind: 'na', reason: 'not worked out in HFOV: its rate is an oscillation frequency, and tidal volume × rate is not its ventilation' };
 const ZERO_SET_RATE: Outcome = { kind: 'na', reason: 'the set rate is 0 in a mode that delivers mandatory breaths, and no rate is measured (see PN312)', withheldBy: 'PN312' };
 
 

@@ -29,8 +29,10 @@ export const minuteVentilation = defineDerived({
   anchors: ['vt', 'vent_rate', 'rr'],
   compute(c) {
     const vt = c.field('vt', 'VT');
-    const rr = c.respiratoryRate();
     if (!vt) return { kind: 'na', reason: 'needs a tidal volume' };
+    const hfov = c.oscillation();
+    if (hfov) return hfov;
+    const rr = c.respiratoryRate();
     // A set rate of 0 gives no minute ventilation of 0: withheld where it is a mistake (PN312),
     // else a measured rate is asked for (in a spontaneous mode the patient sets the rate).
     if (!rr) return c.zeroSetRate() ?? c.missing([rr, 'rr']);
@@ -180,6 +182,8 @@ export const mechanicalPower = defineDerived({
     const plat = c.field('plateau', 'Pplat');
     const peep = c.field('peep', 'PEEP');
     if (!peak || !plat) return { kind: 'na', reason: 'needs peak and plateau pressures' };
+    const hfov = c.oscillation();
+    if (hfov) return hfov;
     if (!rr) {
       const withheld = c.zeroSetRate();
       if (withheld) return withheld;
@@ -228,6 +232,8 @@ export const ventilatoryRatioDef = defineDerived({
   anchors: ['paco2'],
   compute(c) {
     if (!c.field('vt') && !c.field('minute_volume')) return { kind: 'na', reason: 'needs ventilation (vt and rate, or measured ve)' };
+    const hfov = c.oscillation();
+    if (hfov) return hfov;
     const ve = c.field('minute_volume', 'VE') ?? c.derived('minute_ventilation', 'VE');
     const paco2 = c.field('paco2', 'PaCO2');
     const p = c.derived('predicted_body_weight', 'PBW');

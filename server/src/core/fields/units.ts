@@ -66,7 +66,7 @@ function unit(
   return { id, dimension, ucum, aliases, ...conversion };
 }
 
-/** Base units: mmHg, cmH2O, fraction, %, /min, °C, mL, L/min, g/dL, mmol/L, cm, kg, years, pH units. */
+/** Base units: mmHg, cmH2O, fraction, %, /min (Hz converts to it), °C, mL, L/min, g/dL, mmol/L, cm, kg, years, pH units. */
 export const UNITS: readonly UnitDef[] = [
   unit('mmHg', 'gas-pressure', 'mm[Hg]', linear(1), ['mm Hg', 'mmhg', 'torr']),
   unit('kPa', 'gas-pressure', 'kPa', linear(MMHG_PER_KPA), ['kpa']),
@@ -77,6 +77,8 @@ export const UNITS: readonly UnitDef[] = [
   // Spelt as the fraction's percentage is (`spo2 94 pct` as `fio2 40 pct`).
   unit('%sat', 'percent', '%', linear(1), ['%', 'percent', 'pct']),
   unit('/min', 'rate', '/min', linear(1), ['bpm', 'min-1', 'breaths/min', 'beats/min', '/m']),
+  // Cycles a second, as oscillators are set (1 Hz = 60 /min; UCUM: Hz = 1/s).
+  unit('Hz', 'rate', 'Hz', linear(60), ['hz']),
   unit('C', 'temperature', 'Cel', linear(1), ['°C', 'degC', 'c', 'celsius']),
   unit('F', 'temperature', '[degF]', { toBase: (v) => ((v - 32) * 5) / 9, fromBase: (v) => (v * 9) / 5 + 32 }, ['°F', 'degF', 'f', 'fahrenheit']),
   unit('mL', 'volume', 'mL', linear(1), ['ml', 'cc']),

@@ -1488,7 +1488,9 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
         }
       }
     }
-    if (!value && !inPhrase) {
+    // A key the section does not know is reported as such (PN201, with the keys or the device it
+    // is near): that it has no value would only say it twice (`oxygen roomair`).
+    if (!value && !inPhrase && field !== null) {
       issues.push({ check: 'missing-value', span: key.span, message: `\`${key.text}\` has no value.`, fixes: [] });
     }
     items[count++] = otherItem(key.text, keyName, null, field, value, unit, key.start);
