@@ -191,22 +191,30 @@ describe('Pneumark in VS Code', () => {
     const input = wb.page.locator('.quick-input-widget input');
     await input.fill('PN405');
     await wb.page.locator('.quick-input-list .monaco-list-row', { hasText: 'PN405' }).first().waitFor({ timeout: 15000 });
+    // Enter picks the focused row: wait until the filter has made it PN405's (the unfiltered list
+    // holds a PN405 row too, and Enter there would open the first check).
+    await expect.poll(async () => (await wb.page.locator('.quick-input-list .monaco-list-row.focused').first().textContent().catch(() => null)) ?? '', { timeout: 15000 }).toContain('PN405');
     await wb.page.keyboard.press('Enter');
     // The preview scrolls to the check's heading (not the top of the list of checks).
-    await expect.poll(async () => {
-      for (const f of wb.page.frames()) {
-        const heading = f.locator('h2', { hasText: /^PN405 / }).first();
-        if (await heading.count().catch(() => 0) === 0) continue;
-        // Runs in the page: the heading's top is within the preview's window. The preview scrolls
-        // to fractional positions, so a heading scrolled to the top may sit a fraction of a pixel
-        // above it (-0.14 px was seen).
-        return heading.evaluate((el) => {
-          const top = (el as unknown as { getBoundingClientRect(): { top: number } }).getBoundingClientRect().top;
-          return top > -1 && top < (globalThis as unknown as { innerHeight: number }).innerHeight;
-        });
-      }
-      return false;
-    }, { timeout: 60000 }).toBe(true);
+    try {
+      await expect.poll(async () => {
+        for (const f of wb.page.frames()) {
+          const heading = f.locator('h2', { hasText: /^PN405 / }).first();
+          if (await heading.count().catch(() => 0) === 0) continue;
+          // Runs in the page: the heading's top is within the preview's window. The preview scrolls
+          // to fractional positions, so a heading scrolled to the top may sit a fraction of a pixel
+          // above it (-0.14 px was seen).
+          return heading.evaluate((el) => {
+            const top = (el as unknown as { getBoundingClientRect(): { top: number } }).getBoundingClientRect().top;
+            return top > -1 && top < (globalThis as unknown as { innerHeight: number }).innerHeight;
+          });
+        }
+        return false;
+      }, { timeout: 60000 }).toBe(true);
+    } catch (error) {
+      await screenshot(wb.page, 'failed-13-check-docs');
+      throw error;
+    }
     await screenshot(wb.page, '13-check-docs');
   });
 
