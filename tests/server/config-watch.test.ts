@@ -233,6 +233,27 @@ describe('the config watcher', () => {
 });
 
 /** The inodes a process watches with inotify (Linux: /proc/PID/fdinfo). */
+/** A fresh folder holding a workspace folder `ws`, with a server started on that workspace; all let go after `body`. */
+async function inWorkspace(body: (root: string, ws: string, client: LspClient) => Promise<void>): Promise<void> {
+  const root = tempRoot();
+  const ws = join(root, 'ws');
+  mkdirSync(ws);
+  const client = await startClient({}, { workspaceFolders: [ws] });
+  try {
+    await body(root, ws, client);
+  } finally {
+    await client.close();
+    rmSync(root, { recursive: true, force: true });
+  }
+}
+
+/** Closes a note and waits until the server clears its diagnostics, which it does after letting the note's watches go. */
+async function closeNote(client: LspClient, uri: string): Promise<void> {
+  const count = client.published.length;
+  await client.connection.sendNotification('textDocument/didClose', { textDocument: { uri } });
+  await client.diagnostics(uri, (p) => client.published.indexOf(p) >= count);
+}
+
 function watchedInodes(pid: number): number[] {
   const inodes: number[] = [];
   for (const fd of readdirSync(`/proc/${pid}/fd`)) {
@@ -436,11 +457,7 @@ describe.runIf(posix)('a project file inside the workspace', () => {
 
 describe.runIf(process.platform === 'linux')('the watches the server holds (Linux: /proc)', () => {
   it('are on the folders above the workspace only, follow the workspace folders, and are all let go when the note is closed', async () => {
-    const root = tempRoot();
-    const ws = join(root, 'ws');
-    mkdirSync(ws);
-    const client = await startClient({}, { workspaceFolders: [ws] });
-    try {
+    await inWorkspace(async (root, ws, client) => {
       const pid = client.process.pid!;
       const uri = client.open(join(ws, 'a.pneu'), NOTE);
       await client.diagnostics(uri);
@@ -458,15 +475,9 @@ describe.runIf(process.platform === 'linux')('the watches the server holds (Linu
       await client.connection.sendNotification('workspace/didChangeWorkspaceFolders', { event: { added: [], removed: [{ uri: pathToFileURL(root).toString(), name: 'root' }] } });
       await client.connection.sendRequest('textDocument/hover', { textDocument: { uri }, position: { line: 1, character: 5 } });
       expect(watchedInodes(pid)).toContain(statSync(root).ino);
-      const count = client.published.length;
-      await client.connection.sendNotification('textDocument/didClose', { textDocument: { uri } });
-      // The server clears a closed note's diagnostics after letting its watches go.
-      await client.diagnostics(uri, (p) => client.published.indexOf(p) >= count);
+      await closeNote(client, uri);
       expect(watchedInodes(pid)).toEqual([]);
-    } finally {
-      await client.close();
-      rmSync(root, { recursive: true, force: true });
-    }
+    });
   });
   it('include the folder of the file a linked project file leads to, let go with the rest when the note is closed', async () => {
     const root = tempRoot();
@@ -481,9 +492,7 @@ describe.runIf(process.platform === 'linux')('the watches the server holds (Linu
       const uri = client.open(join(ws, 'a.pneu'), NOTE);
       expect(threshold(await client.diagnostics(uri))).toBe('70');
       expect(watchedInodes(pid)).toEqual([statSync(root).ino, statSync(shared).ino].sort((a, b) => a - b));
-      const count = client.published.length;
-      await client.connection.sendNotification('textDocument/didClose', { textDocument: { uri } });
-      await client.diagnostics(uri, (p) => client.published.indexOf(p) >= count);
+      await closeNote(client, uri);
       expect(watchedInodes(pid)).toEqual([]);
     } finally {
       await client.close();
@@ -494,11 +503,7 @@ describe.runIf(process.platform === 'linux')('the watches the server holds (Linu
 
 describe.runIf(process.platform === 'linux')('a note closed while its settings are asked for', () => {
   it('leaves no watch behind, and the note opened again at once is analysed', async () => {
-    const root = tempRoot();
-    const ws = join(root, 'ws');
-    mkdirSync(ws);
-    const client = await startClient({}, { workspaceFolders: [ws] });
-    try {
+    await inWorkspace(async (root, ws, client) => {
       const pid = client.process.pid!;
       // Closed before the client has answered the request for its settings (sent on opening).
       const uri = client.open(join(ws, 'a.pneu'), NOTE);
@@ -508,15 +513,10 @@ describe.runIf(process.platform === 'linux')('a note closed while its settings a
       await client.connection.sendNotification('textDocument/didClose', { textDocument: { uri: b } });
       client.open(again, '@ 08:00\nvitals spo2 104\n', 2);
       expect((await client.diagnostics(b, (p) => p.version === 2)).diagnostics.map((d) => d.code)).toEqual(['PN306']);
-      const count = client.published.length;
-      await client.connection.sendNotification('textDocument/didClose', { textDocument: { uri: b } });
-      await client.diagnostics(b, (p) => client.published.indexOf(p) >= count);
+      await closeNote(client, b);
       expect(watchedInodes(pid)).toEqual([]);
       expect(client.published.filter((p) => p.uri === uri && p.diagnostics.length > 0)).toEqual([]);
-    } finally {
-      await client.close();
-      rmSync(root, { recursive: true, force: true });
-    }
+    });
   });
 });
 
