@@ -317,6 +317,15 @@ describe('convertNoteUnits', () => {
     expect(after(note('@ 08:00', 'abg pco2 1|50 mmHg'), 'Write pco2 in kPa: 20.0 kPa')).toBe(note('@ 08:00', 'abg pco2 20.0 kPa'));
   });
 
+  it('keeps every line where the first line end is a lone CR and an empty line ends with LF', () => {
+    // Found by the action property test: the units line written with CR before an empty line
+    // ended by LF made one CRLF of the two, and the blank line was lost.
+    const text = '\r,patient\n\nplace barometric 7.35 #';
+    const converted = applyEdits(text, convertNoteUnits(checkNote(text), 'kPa'));
+    expect(converted).toBe('\r,patient\n\nunits     gas kPa\rplace barometric 7.35 mmHg #');
+    expect(checkNote(converted).analysis.tree.lines.map((l) => l.text)).toEqual(['', ',patient', '', 'units     gas kPa', 'place barometric 7.35 mmHg #']);
+  });
+
   it('keeps an unusual value as read, with its unit written', () => {
     const text = note('@ 08:00', 'abg po2 800');
     expect(applyEdits(text, convertNoteUnits(checkNote(text), 'kPa'))).toBe(note('units     gas kPa', '@ 08:00', 'abg po2 800 mmHg'));

@@ -221,7 +221,11 @@ export function convertNoteUnits(result: NoteResult, to: GasUnit): TextEdit[] {
   if (firstUnits) {
     bareFrom = firstUnits.line + 1;
   } else {
-    const at = unitsLineInsertion(result);
+    let at = unitsLineInsertion(result);
+    // Where the note's first line end is a lone CR, the CR written after the units line would join
+    // the LF that ends an empty line after it into one CRLF, and that blank line would be lost: the
+    // units line goes before the next line that is not blank (bare values are read from there on).
+    if (tree.eol === '\r') while (at < tree.lines.length && tree.lines[at]!.text === '') at++;
     const text = `${'units'.padEnd(ITEM_COLUMN)}gas ${to}`;
     const lastLine = tree.lines.length - 1;
     if (at > lastLine) {
