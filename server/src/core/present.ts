@@ -7,7 +7,7 @@ import { displayUnit } from './analysis/read-value';
 import type { Timeline } from './analysis/timeline';
 import { fieldById, shortName } from './fields/registry';
 import { convert, unitById, type UnitDef } from './fields/units';
-import { formatNumber } from './util/format';
+import { formatNumber, writtenDecimals } from './util/format';
 import { MMHG_PER_KPA } from './physiology/units';
 
 /** Decimals that keep a value's precision in another unit. */
@@ -80,19 +80,7 @@ export function kpaResolutionMmhg(stated: StatedValue): number {
   return 0.5 * 10 ** -decimals * MMHG_PER_KPA;
 }
 
-/** The most decimals among the numbers of a value's text (`7.5` → 1, `0.355` → 3, `7,25` → 2, `120/80` → 0). */
-export function writtenDecimals(text: string): number {
-  let most = 0;
-  let run = -1;
-  for (let i = 0; i < text.length; i++) {
-    const c = text.charCodeAt(i);
-    if (c === 0x2e || c === 0x2c) run = 0;
-    else if (c >= 0x30 && c <= 0x39) {
-      if (run >= 0 && ++run > most) most = run;
-    } else run = -1;
-  }
-  return most;
-}
+export { writtenDecimals } from './util/format';
 
 // ── gas pressures in a kPa note ─────────────────────────────────────────
 // Inside the core gas pressures are mmHg. Where the gas unit in force at a timepoint is kPa

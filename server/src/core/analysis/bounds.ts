@@ -5,6 +5,7 @@
  */
 import type { Bounds, FieldDef } from '../fields/registry';
 import { convert, unitById, type UnitDef } from '../fields/units';
+import { writtenDecimals } from '../util/format';
 
 export const LOW_PRESSURE_WAIVER_MMHG = 500;
 const WAIVED_AT_ALTITUDE = new Set(['pao2', 'paco2', 'pvo2', 'pvco2', 'spo2', 'sao2']);
@@ -73,22 +74,13 @@ export function withinAsWritten(value: number, bounds: Bounds | undefined, field
   const canonical = unitById(field.unit ?? '');
   const written = from && canonical ? convert(value, canonical, from) : null;
   if (!from || !canonical || written === null) return false;
-  const half = 0.5 * 10 ** -decimalsOf(text);
+  const half = 0.5 * 10 ** -writtenDecimals(text);
   const a = convert(written - half, from, canonical);
   const b = convert(written + half, from, canonical);
   if (a === null || b === null) return false;
   const low = Math.min(a, b);
   const high = Math.max(a, b);
   return (bounds.min === undefined || high >= bounds.min) && (bounds.max === undefined || low <= bounds.max);
-}
-
-/** Decimals written after the point (or comma) of a number: `20.0` → 1, `150` → 0. */
-function decimalsOf(text: string): number {
-  const point = Math.max(text.indexOf('.'), text.indexOf(','));
-  if (point < 0) return 0;
-  let end = point + 1;
-  while (end < text.length && text.charCodeAt(end) >= 0x30 && text.charCodeAt(end) <= 0x39) end++;
-  return end - point - 1;
 }
 
 /**

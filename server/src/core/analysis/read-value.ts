@@ -12,6 +12,7 @@ import { scanNumber } from '../syntax/lexer';
 import { formatNumber, wordList } from '../util/format';
 import { closest, editDistance } from '../util/suggest';
 import { nearDevicePhrase } from '../fields/device-phrases';
+import { squeezeBlanks } from '../syntax/blanks';
 import { doubtBoundsAt, softBoundsAt, unitsWithin, within, type BoundsContext } from './bounds';
 import type { StatedValue } from './model';
 import type { ReadIssue } from './read-issues';
@@ -332,7 +333,7 @@ function unknownKeyIssue(item: ItemNode, section: SectionId, line: number, lineI
         line,
         span: phrase.span,
         message: `\`${phrase.text}\` is neither a device nor a key of oxygen lines. Did you mean \`${phrase.device}\`?`,
-        fixes: [{ ...fix, preferred: safeKeyFix(phrase.text.toLowerCase().replace(BLANKS, ' '), phrase.device.toLowerCase()) }],
+        fixes: [{ ...fix, preferred: safeKeyFix(squeezeBlanks(phrase.text.toLowerCase()), phrase.device.toLowerCase()) }],
       };
     }
     if (inDevicePhrase(item, lineItems, lineText)) return null;
@@ -352,9 +353,6 @@ function unknownKeyIssue(item: ItemNode, section: SectionId, line: number, lineI
     fixes: near.map((k) => ({ title: `Change to \`${k}\``, edits: [{ span: key.span, newText: k }], preferred: near.length === 1 && safeKeyFix(key.text.toLowerCase(), k.toLowerCase()) })),
   };
 }
-
-/** Runs of blanks between the words of a phrase. */
-const BLANKS = /[ \t\u00a0]+/g;
 
 /** A run of words that is near a device of several words but not one: what it reads as, and where. */
 interface DevicePhrase {

@@ -1,8 +1,8 @@
 /**
  * Oxygen devices written in more than one word (`room air`), and the runs of words near one: a
- * device of two words with a word misspelt (`room aor`, `rom air`) is read as unknown keys, so the
- * parser does not report those words as keys without a value, and the reader reports them once,
- * with the device offered for all of them (analysis/read-value.ts).
+ * device of two words with a word misspelt (`room aor`, `rom air`) is read as unknown keys, which
+ * the parser does not report as keys without a value (no unknown key is), and the reader reports
+ * them once, with the device offered for all of them (analysis/read-value.ts).
  */
 import { FIELDS } from './registry';
 import { closest } from '../util/suggest';

@@ -8,7 +8,6 @@ import { SECTIONS, sectionByName, type SectionDef, type SectionId } from '../fie
 import { isKnownUnitSpelling, unitsForSpelling, UNITS } from '../fields/units';
 import { unitsWithin } from '../analysis/bounds';
 import { closest } from '../util/suggest';
-import { nearDevicePhrase } from '../fields/device-phrases';
 import { Chunk, isBlank, isDigit, leadingNumber, LEXED, lowerCase, releaseWords, scanNumber, scanWord, SCANNED, wordsOf, Word } from './lexer';
 import type {
   BlankLine,
@@ -899,7 +898,6 @@ function hasSlash(word: Word): boolean {
   return false;
 }
 
-/** Whether a chunk can be a key: keys start with a letter (any script, so a misspelt key is still named). */
 const DECIMAL_DIGIT = /^\p{Nd}$/u;
 
 function isDecimalDigit(code: number): boolean {
@@ -944,6 +942,7 @@ function asciiNumberOf(text: string): { readonly text: string; readonly length: 
   return other ? { text: out, length: at } : null;
 }
 
+/** Whether a chunk can be a key: keys start with a letter (any script, so a misspelt key is still named). */
 function startsLikeKey(text: string): boolean {
   const c = text.charCodeAt(0);
   const lower = c | 0x20;
@@ -1268,19 +1267,6 @@ function deviceWordAt(chunks: readonly Word[], i: number): { text: string; span:
 }
 
 /**
- * Where a device of several words with a word misspelt (`room aor`) that starts at chunk `i` ends
- * (the index of the chunk after it): its words are blanks apart, none a number or a key of the
- * section. -1 when the words there are near no such device.
- */
-function nearDevicePhraseEnd(chunks: readonly Word[], i: number, section: SectionId): number {
-  const near = nearDevicePhrase((j) => {
-    const c = chunks[i + j];
-    return c !== undefined && (j === 0 || !c.afterComma) && startsLikeKey(c.text) && !isKey(section, c.text) ? c.text : null;
-  });
-  return near ? i + near.words.length : -1;
-}
-
-/**
  * How many chunks the unit `unitWordAt` or `unitAfter` read last takes: 2 for a unit of two words
  * (`mm Hg`), else 1 (for `unitAfter`, the chunks after the number's: 0 for no unit or one glued to
  * the number, 1 for `80mm Hg`). One variable, read right after the call, rather than an object per unit.
@@ -1380,12 +1366,8 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
   }
 
   // Oxygen device first: oxygen cannula 4 L/min, oxygen room air
-  // A device of several words with one misspelt (`room aor`): its words read as unknown keys, which
-  // the reader reports together with the device offered; they are no keys without a value.
-  let phraseEnd = -1;
   if (section === 'oxygen') {
     const dev = deviceWordAt(chunks, start);
-    if (!dev) phraseEnd = nearDevicePhraseEnd(chunks, start, section);
     if (dev) {
       i = start + dev.used;
       const value: WordValue = new WordNode(dev.text, dev.span);
@@ -1432,7 +1414,6 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
       continue;
     }
     const key = chunk;
-    const inPhrase = i < phraseEnd;
     const keyName = lowerCase(chunk.text);
     const field = fieldFor(section, chunk.text) ?? null;
     i++;
@@ -1444,8 +1425,6 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
         if (!isKey(section, next.text) || (field.words?.[lowerCase(next.text)] !== undefined)) {
           if (field.id === 'device') {
             const dev = deviceWordAt(chunks, i);
-            // `device room aor`: the words after the first are no keys without a value either.
-            if (!dev) phraseEnd = nearDevicePhraseEnd(chunks, i, section);
             const used = dev?.used ?? 1;
             const span = dev?.span ?? next.span;
             value = new WordNode(dev?.text ?? next.text, span);
@@ -1489,8 +1468,9 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
       }
     }
     // A key the section does not know is reported as such (PN201, with the keys or the device it
-    // is near): that it has no value would only say it twice (`oxygen roomair`).
-    if (!value && !inPhrase && field !== null) {
+    // is near; the words of a misspelt device, `room aor`, together): that it has no value would
+    // only say it twice (`oxygen roomair`).
+    if (!value && field !== null) {
       issues.push({ check: 'missing-value', span: key.span, message: `\`${key.text}\` has no value.`, fixes: [] });
     }
     items[count++] = otherItem(key.text, keyName, null, field, value, unit, key.start);

@@ -107,3 +107,17 @@ const escapedChar = (c: string): string => {
 export function shownEscaped(text: string): string {
   return MAYBE_ESCAPED.test(text) ? text.replace(SHOWN_ESCAPED, escapedChar) : text;
 }
+
+/** The most decimals among the numbers of a value's text (`7.5` → 1, `0.355` → 3, `7,25` → 2, `120/80` → 0). */
+export function writtenDecimals(text: string): number {
+  let most = 0;
+  let run = -1;
+  for (let i = 0; i < text.length; i++) {
+    const c = text.charCodeAt(i);
+    if (c === 0x2e || c === 0x2c) run = 0;
+    else if (c >= 0x30 && c <= 0x39) {
+      if (run >= 0 && ++run > most) most = run;
+    } else run = -1;
+  }
+  return most;
+}
