@@ -1,7 +1,7 @@
 // formatNumber writes whole numbers without toFixed (a shortcut for speed): the text must be the
 // one toFixed gives, with a negative number that rounds to zero written as 0.
 import { describe, expect, it } from 'vitest';
-import { formatNumber } from '../../server/src/core/util/format';
+import { formatNumber, halfLastDigit, writtenDecimals } from '../../server/src/core/util/format';
 import { rng } from '../helpers/seeded';
 
 /** The rule as written before the shortcut: toFixed, decimals clamped to 0–6, no "-0". */
@@ -46,5 +46,19 @@ describe('formatNumber', () => {
   it('writes what is not a finite number as a dash', () => {
     expect(formatNumber(NaN, 0)).toBe('—');
     expect(formatNumber(Infinity, 2)).toBe('—');
+  });
+});
+
+describe('writtenDecimals and halfLastDigit', () => {
+  it('count the decimals written and give half a unit of the last one', () => {
+    expect(writtenDecimals('7.5')).toBe(1);
+    expect(writtenDecimals('0.355')).toBe(3);
+    expect(writtenDecimals('7,25')).toBe(2);
+    expect(writtenDecimals('120/80')).toBe(0);
+    expect(halfLastDigit('6.7')).toBeCloseTo(0.05, 12);
+    expect(halfLastDigit('150')).toBe(0.5);
+    // A kPa pressure is taken to a tenth at least: 8 kPa stands for 7.95–8.05 kPa.
+    expect(halfLastDigit('8', 1)).toBeCloseTo(0.05, 12);
+    expect(halfLastDigit('6.75', 1)).toBeCloseTo(0.005, 12);
   });
 });

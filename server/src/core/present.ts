@@ -7,7 +7,7 @@ import { displayUnit } from './analysis/read-value';
 import type { Timeline } from './analysis/timeline';
 import { fieldById, shortName } from './fields/registry';
 import { convert, unitById, type UnitDef } from './fields/units';
-import { formatNumber, writtenDecimals } from './util/format';
+import { formatNumber, halfLastDigit, writtenDecimals } from './util/format';
 import { MMHG_PER_KPA } from './physiology/units';
 
 /** Decimals that keep a value's precision in another unit. */
@@ -76,8 +76,7 @@ function writtenPrecisionIn(s: StatedValue, target: UnitDef): number {
  */
 export function kpaResolutionMmhg(stated: StatedValue): number {
   if (stated.readUnit !== 'kPa') return 0;
-  const decimals = Math.max(1, writtenDecimals(stated.item.value?.text ?? ''));
-  return 0.5 * 10 ** -decimals * MMHG_PER_KPA;
+  return halfLastDigit(stated.item.value?.text ?? '', 1) * MMHG_PER_KPA;
 }
 
 export { writtenDecimals } from './util/format';

@@ -5,7 +5,7 @@
  */
 import type { Bounds, FieldDef } from '../fields/registry';
 import { convert, unitById, type UnitDef } from '../fields/units';
-import { writtenDecimals } from '../util/format';
+import { halfLastDigit } from '../util/format';
 
 export const LOW_PRESSURE_WAIVER_MMHG = 500;
 const WAIVED_AT_ALTITUDE = new Set(['pao2', 'paco2', 'pvo2', 'pvco2', 'spo2', 'sao2']);
@@ -74,7 +74,7 @@ export function withinAsWritten(value: number, bounds: Bounds | undefined, field
   const canonical = unitById(field.unit ?? '');
   const written = from && canonical ? convert(value, canonical, from) : null;
   if (!from || !canonical || written === null) return false;
-  const half = 0.5 * 10 ** -writtenDecimals(text);
+  const half = halfLastDigit(text);
   const a = convert(written - half, from, canonical);
   const b = convert(written + half, from, canonical);
   if (a === null || b === null) return false;

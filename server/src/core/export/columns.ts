@@ -333,10 +333,12 @@ export function assertExportOptions(options: ExportOptions): void {
 }
 
 /**
- * Whether a line of a timepoint is a header line: a patient, place or units line before the first
- * `@`, which the implicit first timepoint's lines (from the first line with content) may include.
+ * Whether a line of a timepoint is a line of a header section: a patient, place or units line
+ * before the first `@`, which the implicit first timepoint's lines (from the first line with
+ * content) may include. Whether or not it states a value (compare `statesHeaderValues` in
+ * service/locate.ts, which asks whether a line states header values).
  */
-function isHeaderLine(result: NoteResult, timepoint: Timepoint, line: number): boolean {
+function isHeaderSectionLine(result: NoteResult, timepoint: Timepoint, line: number): boolean {
   if (timepoint.line !== null) return false;
   const lines = result.analysis.tree.lines;
   const node = lines[line]?.line === line ? lines[line] : lines.find((l) => l.line === line);
@@ -345,7 +347,7 @@ function isHeaderLine(result: NoteResult, timepoint: Timepoint, line: number): b
 
 /** Findings that start on a timepoint's lines (header lines left out), in the order of the result. */
 export function findingsOfTimepoint(result: NoteResult, timepoint: Timepoint): Finding[] {
-  return result.findings.filter((f) => f.range.start.line >= timepoint.startLine && f.range.start.line <= timepoint.endLine && !isHeaderLine(result, timepoint, f.range.start.line));
+  return result.findings.filter((f) => f.range.start.line >= timepoint.startLine && f.range.start.line <= timepoint.endLine && !isHeaderSectionLine(result, timepoint, f.range.start.line));
 }
 
 /**
@@ -371,7 +373,7 @@ export function findingsByTimepoint(result: NoteResult): Finding[][] {
         break;
       }
     }
-    if (found >= 0 && !isHeaderLine(result, timepoints[found]!, line)) out[found]?.push(f);
+    if (found >= 0 && !isHeaderSectionLine(result, timepoints[found]!, line)) out[found]?.push(f);
   }
   return out;
 }

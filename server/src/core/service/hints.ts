@@ -19,7 +19,7 @@ import { withheldText, type DerivedValue, type Interpretation, type NotApplicabl
 import { kpaFirstCompact, kpaNumber } from '../present';
 import { formatNumber } from '../util/format';
 import { derivedBody, derivedInKpa, termText } from './derived-hover';
-import { contentEnd, isHeaderLine, lineAt } from './locate';
+import { contentEnd, statesHeaderValues, lineAt } from './locate';
 import { cautionLine, escapeMarkdown, paragraphs } from './markdown';
 import { describeInputOrigin } from '../derive/context';
 import { derivationOf, derivedAt, derivedDef } from '../derive/registry';
@@ -159,7 +159,7 @@ export function inlayHints(result: NoteResult, lines: LineSpan, options: HintOpt
           if (d.id !== pick.id) continue;
           const line = pick.line ? pick.line(d) : d.line;
           if (!inRange(line) || shown.has(`${line}:${d.id}`)) continue;
-          const shownAt = isHeaderLine(result, line) ? asOnHeader(tp, result.analysis.timeline.headerGasUnit) : tp;
+          const shownAt = statesHeaderValues(result, line) ? asOnHeader(tp, result.analysis.timeline.headerGasUnit) : tp;
           const kpa = derivedInKpa(d, shownAt);
           // In a note whose gas unit is kPa, a pressure shown in mmHg (its gas was written in mmHg) says so.
           const mmhgInKpaNote = !kpa && d.unit === 'mmHg' && shownAt.gasUnit === 'kPa';

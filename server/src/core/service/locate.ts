@@ -96,15 +96,15 @@ export function statedOf(result: NoteResult, line: number, item: ItemNode): Stat
   return null;
 }
 
-/** Whether a line is one of the note's header lines (it states values before the first timepoint). */
-export function isHeaderLine(result: NoteResult, line: number): boolean {
+/** Whether a line states header values (values before the first timepoint); a header line that states none is not one. */
+export function statesHeaderValues(result: NoteResult, line: number): boolean {
   return result.analysis.timeline.header.some((s) => s.line === line);
 }
 
 /** The timepoint whose lines include `line` (null for header lines and lines before any timepoint). */
 export function timepointOfLine(result: NoteResult, line: number): Timepoint | null {
   const t = result.analysis.timeline;
-  if (isHeaderLine(result, line)) return null;
+  if (statesHeaderValues(result, line)) return null;
   for (let i = t.timepoints.length - 1; i >= 0; i--) {
     const tp = t.timepoints[i]!;
     if (line >= tp.startLine && line <= tp.endLine) return tp;

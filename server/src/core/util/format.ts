@@ -121,3 +121,11 @@ export function writtenDecimals(text: string): number {
   }
   return most;
 }
+
+/**
+ * Half a unit of the last decimal a number was written with (`6.7` → 0.05, `150` → 0.5): how far
+ * what it stands for can be from it. `atLeast` decimals are assumed where fewer were written.
+ */
+export function halfLastDigit(text: string, atLeast = 0): number {
+  return 0.5 * 10 ** -Math.max(atLeast, writtenDecimals(text));
+}
