@@ -5,6 +5,7 @@ import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 
 const META = 'dist/meta';
+const LOCAL_SOCKET = 'server/src/server/local-socket.ts';
 const NETWORK = /^(node:)?(net|http|https|http2|tls|dgram|dns|inspector)$/;
 
 interface Metafile {
@@ -19,12 +20,21 @@ describe('bundles make no network calls', () => {
     expect(bundles.map((b) => b.name).sort()).toEqual(expect.arrayContaining(['cli', 'core', 'extension', 'server', 'webview-trends']));
   });
 
-  it.each(bundles.map((b) => [b.name, b.meta] as const))('%s imports no network module', (_name, meta) => {
+  it.each(bundles.map((b) => [b.name, b.meta] as const))('%s imports no network module (the server: only net, from local-socket.ts)', (name, meta) => {
     const reached: string[] = [];
     for (const [file, info] of Object.entries(meta.inputs)) {
       for (const imp of info.imports ?? []) if (NETWORK.test(imp.path)) reached.push(`${imp.path} from ${file}`);
     }
-    expect(reached).toEqual([]);
+    // The language server's connection to the editor for --socket (127.0.0.1) and --pipe (a local socket).
+    expect(reached).toEqual(name === 'server' ? [`node:net from ${LOCAL_SOCKET}`] : []);
+  });
+
+  it('connects the language server only to 127.0.0.1 or a local socket path', () => {
+    const source = readFileSync(LOCAL_SOCKET, 'utf8');
+    const calls = [...source.matchAll(/createConnection\(([^)]*)\)/g)].map((m) => m[1]);
+    expect(calls).toEqual(['{ host: LOOPBACK, port: target.port }', '{ path: target.path }']);
+    expect(source).toContain("export const LOOPBACK = '127.0.0.1';");
+    expect(source).not.toMatch(/\b(connect|Socket|createServer|listen)\s*\(/);
   });
 
   it.each(bundles.map((b) => [b.name, b.meta] as const))('%s contains no HTTP client or socket use', (_name, meta) => {
@@ -42,8 +52,10 @@ describe('bundles make no network calls', () => {
     expect(readFileSync('dist/extension.js', 'utf8')).not.toMatch(/--inspect(-brk)?=\d/);
   });
 
-  it('routes the protocol library’s socket transports to a stub that refuses', () => {
+  it('routes the protocol library’s own socket helpers to a stub that refuses', () => {
     const server = readFileSync('dist/server.js', 'utf8');
     expect(server).toContain('Pneumark makes no network connections');
+    // Only local-socket.ts gets the real module: the bundle requires it once.
+    expect(server.match(/require\("(node:)?net"\)/g)).toEqual(['require("node:net")']);
   });
 });
