@@ -9,8 +9,8 @@ const production = process.argv.includes('--production');
  * No network in the editor side: `net` (pulled in by the protocol library for its socket helpers)
  * and the HTTP modules resolve to a stub that refuses, so no network module is reachable from the
  * bundles, with one exception: server/src/server/local-socket.ts, the language server's
- * connection to the editor for `--socket` (127.0.0.1 only) and `--pipe` (a local socket), gets
- * the real `net`.
+ * connection to the editor for `--pipe` (a local socket path, never a host and port), gets the
+ * real `net`.
  */
 const LOCAL_SOCKET = new URL('./server/src/server/local-socket.ts', import.meta.url).pathname;
 const noNetwork = {

@@ -1,7 +1,8 @@
-// The transports of the bundled language server other than stdio: `--socket` (TCP on 127.0.0.1,
-// where the client listens) and `--pipe` (a local socket), with the shutdown gate of the Language
-// Server Protocol (3.17, "Shutdown Request": requests after shutdown fail with InvalidRequest) and
-// stdio's exit statuses; and what the server does when started without a usable transport.
+// The transports of the bundled language server other than stdio: `--pipe` (a local socket, where
+// the client listens), with the shutdown gate of the Language Server Protocol (3.17, "Shutdown
+// Request": requests after shutdown fail with InvalidRequest) and stdio's exit statuses; `--socket`
+// (TCP) refused, as Pneumark opens no network connection; and what the server does when started
+// without a usable transport.
 import { spawn, type ChildProcessWithoutNullStreams } from 'node:child_process';
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -10,7 +11,6 @@ import { pathToFileURL } from 'node:url';
 import { afterEach, describe, expect, it } from 'vitest';
 import {
   createClientPipeTransport,
-  createClientSocketTransport,
   createProtocolConnection,
   ResponseError,
   type MessageReader,
@@ -18,7 +18,7 @@ import {
   type ProtocolConnection,
   type PublishDiagnosticsParams,
 } from 'vscode-languageserver-protocol/node';
-import { NO_TRANSPORT, transportOf, TRANSPORT_PROBLEM_STATUS } from '../../server/src/server/transport';
+import { NO_SOCKET, NO_TRANSPORT, transportOf, TRANSPORT_PROBLEM_STATUS } from '../../server/src/server/transport';
 
 const INVALID_REQUEST = -32600;
 const WAIT_MS = 15000;
@@ -56,14 +56,6 @@ function within<T>(what: string, promise: Promise<T>, server: Server): Promise<T
 }
 
 type Listening = { readonly args: readonly string[]; onConnected(): Promise<[MessageReader, MessageWriter]>; close(): void };
-
-/** The client's end for `--socket`: a TCP server on 127.0.0.1, on a port the system picks. */
-async function socketListening(form: 'equals' | 'separate'): Promise<Listening> {
-  const transport = await createClientSocketTransport(0);
-  started.closers.push(() => transport.close());
-  const port = String(transport.port());
-  return { args: form === 'equals' ? [`--socket=${port}`] : ['--socket', port], onConnected: () => transport.onConnected(), close: () => transport.close() };
-}
 
 /** The client's end for `--pipe`: a Unix domain socket in a temporary folder. */
 async function pipeListening(form: 'equals' | 'separate'): Promise<Listening> {
@@ -112,8 +104,6 @@ async function diagnosticsOf(published: PublishDiagnosticsParams[], uri: string,
 }
 
 const TRANSPORTS = [
-  ['--socket=PORT', () => socketListening('equals')],
-  ['--socket PORT', () => socketListening('separate')],
   ['--pipe=NAME', () => pipeListening('equals')],
   ['--pipe NAME', () => pipeListening('separate')],
 ] as const;
@@ -160,8 +150,8 @@ describe('a server started without a usable transport', () => {
   it.each([
     [[], NO_TRANSPORT],
     [['--clientProcessId=1'], NO_TRANSPORT],
-    [['--socket=0'], 'pneumark language server: --socket got "0": expected a whole number from 1 to 65535'],
-    [['--socket', '80x'], 'pneumark language server: --socket got "80x": expected a whole number from 1 to 65535'],
+    [['--socket=6009'], NO_SOCKET],
+    [['--socket', '6009'], NO_SOCKET],
     [['--pipe'], 'pneumark language server: --pipe got nothing: expected the name of a local socket or pipe'],
   ])('%j: says so in one line on stderr and exits with status 2', async (args, line) => {
     const server = startServer(args);
@@ -172,13 +162,13 @@ describe('a server started without a usable transport', () => {
     expect(stdout).toBe('');
   });
 
-  it('exits with status 1, saying where, when nothing listens on the port', async () => {
-    const transport = await createClientSocketTransport(0);
-    const port = transport.port();
-    transport.close(); // nothing listens there any more
-    const server = startServer([`--socket=${port}`]);
+  it('exits with status 1, saying where, when nothing listens on the pipe', async () => {
+    const folder = mkdtempSync(join(tmpdir(), 'pneumark-pipe-'));
+    started.folders.push(folder);
+    const name = join(folder, 'nobody-listens.sock');
+    const server = startServer([`--pipe=${name}`]);
     expect(await within('exit', server.exited, server)).toBe(1);
-    expect(server.stderr()).toMatch(new RegExp(`^pneumark language server: connection to 127\\.0\\.0\\.1:${port}: .*ECONNREFUSED.*\\n$`));
+    expect(server.stderr()).toMatch(/^pneumark language server: connection to .*nobody-listens\.sock: .*ENOENT.*\n$/);
   });
 });
 
@@ -186,20 +176,18 @@ describe('transportOf', () => {
   it('reads the forms the protocol library reads; the first transport argument wins', () => {
     expect(transportOf(['--stdio'])).toEqual({ kind: 'stdio' });
     expect(transportOf(['--node-ipc', '--clientProcessId=42'])).toEqual({ kind: 'node-ipc' });
-    expect(transportOf(['--clientProcessId', '42', '--socket=6009'])).toEqual({ kind: 'socket', port: 6009 });
-    expect(transportOf(['--socket', '6009', '--stdio'])).toEqual({ kind: 'socket', port: 6009 });
+    expect(transportOf(['--clientProcessId', '42', '--pipe=/tmp/l.sock'])).toEqual({ kind: 'pipe', name: '/tmp/l.sock' });
     expect(transportOf(['--pipe=/run/user/1000/lsp-1.sock'])).toEqual({ kind: 'pipe', name: '/run/user/1000/lsp-1.sock' });
     expect(transportOf(['--pipe', '/tmp/a b.sock'])).toEqual({ kind: 'pipe', name: '/tmp/a b.sock' });
     expect(transportOf(['--stdio', '--node-ipc'])).toEqual({ kind: 'stdio' });
     expect(transportOf(['--node-ipc', '--stdio'])).toEqual({ kind: 'node-ipc' });
   });
 
-  it('refuses what the library would read as some other port, or as no transport', () => {
-    for (const port of ['', '0', '65536', '1e3', '0x10', ' 80', '-1', '80.5', '6009abc']) {
-      expect(transportOf([`--socket=${port}`]), port).toHaveProperty('problem');
+  it('refuses a TCP socket in every form (the network), and what the library would read as no transport', () => {
+    for (const args of [['--socket=6009'], ['--socket', '6009'], ['--socket'], ['--socket=0'], ['--socket', '6009', '--stdio'], ['--clientProcessId', '42', '--socket=6009']]) {
+      expect(transportOf(args), args.join(' ')).toEqual({ problem: NO_SOCKET });
     }
-    expect(transportOf(['--socket'])).toEqual({ problem: 'pneumark language server: --socket got nothing: expected a whole number from 1 to 65535' });
-    expect(transportOf(['--socket', '--stdio'])).toHaveProperty('problem');
+    expect(transportOf(['--stdio', '--socket=6009'])).toEqual({ kind: 'stdio' });
     expect(transportOf(['--pipe='])).toHaveProperty('problem');
     expect(transportOf(['--port=6009'])).toEqual({ problem: NO_TRANSPORT });
   });

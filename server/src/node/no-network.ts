@@ -1,12 +1,12 @@
 /**
  * Stands in for Node's `net` module (and the HTTP modules) in every bundle. The protocol library's
  * own socket and named-pipe helpers land here, so they fail loudly; the language server's
- * `--socket` and `--pipe` transports connect through server/src/server/local-socket.ts, the one
- * module the build gives the real `net` (127.0.0.1 or a local socket only). The bundle test
+ * `--pipe` transport connects through server/src/server/local-socket.ts, the one module the
+ * build gives the real `net` (a local socket path only; `--socket` is refused). The bundle test
  * (tests/security/network.test.ts) checks that no other network module is reachable.
  */
 function refuse(): never {
-  throw new Error('Pneumark makes no network connections (its language server connects to the editor only through local-socket.ts).');
+  throw new Error('Pneumark makes no network connections (its language server talks to the editor over stdio, Node IPC or a local pipe).');
 }
 
 export const createServer = refuse;

@@ -1,13 +1,13 @@
 /**
  * Entry of the bundled language server (dist/server.js). The transport comes from the command
  * line (transport.ts): `--stdio` (as the VS Code extension and most editors start it),
- * `--node-ipc`, `--socket=PORT` (a connection to 127.0.0.1:PORT, where the editor listens) or
- * `--pipe=NAME` (a local socket or named pipe); with none of them, or a wrong port or pipe, the
- * server says so in one line on stderr and exits with status 2.
- * On stdio, sockets and pipes the messages are written by our ASCII JSON encoder (see wire.ts).
+ * `--node-ipc` or `--pipe=NAME` (a local socket or named pipe); with none of them, with
+ * `--socket` (Pneumark opens no network connection) or a pipe that is not local, the server says
+ * so in one line on stderr and exits with status 2.
+ * On stdio and pipes the messages are written by our ASCII JSON encoder (see wire.ts).
  * On every transport, requests after a shutdown request are refused with InvalidRequest
  * (shutdown-gate.ts), and the server exits with status 0 on `exit` after `shutdown` (1 without
- * it: the library's exit handler); when the client closes its end of stdio, a socket or a pipe,
+ * it: the library's exit handler); when the client closes its end of stdio or a pipe,
  * the server ends with the same statuses. Logging goes to the connection's console, never to
  * stdout, which on stdio carries the protocol.
  */
@@ -66,14 +66,14 @@ function ipcConnection(): Connection {
 }
 
 /**
- * Over a connection to the editor (`--socket`, `--pipe`), with the same gate and encoder as on
+ * Over a connection to the editor's local socket (`--pipe`), with the same gate and encoder as on
  * stdio. The library's exit handler ends the server on `exit`; when the editor closes the
  * connection first, the server ends as on stdio: status 0 after a shutdown request, 1 without.
  * A connection that cannot be made (nothing listens there) or breaks is said in one line on
  * stderr, and ends the server the same way.
  */
-function socketConnection(target: { readonly port: number } | { readonly path: string }): Connection {
-  const socket = connectToEditor(target);
+function pipeConnection(path: string): Connection {
+  const socket = connectToEditor(path);
   const gate = new ShutdownGate();
   const connection = createConnection(
     ProposedFeatures.all,
@@ -82,10 +82,9 @@ function socketConnection(target: { readonly port: number } | { readonly path: s
   );
   let shutdown = false;
   connection.onShutdown(() => { shutdown = true; });
-  const where = 'port' in target ? `127.0.0.1:${target.port}` : target.path;
   const end = () => process.exit(shutdown ? 0 : 1);
   socket.on('error', (e: Error) => {
-    process.stderr.write(`pneumark language server: connection to ${where}: ${e.message}\n`);
+    process.stderr.write(`pneumark language server: connection to ${path}: ${e.message}\n`);
     end();
   });
   socket.on('close', end);
@@ -96,8 +95,7 @@ function connectionFor(transport: Transport): Connection {
   switch (transport.kind) {
     case 'stdio': return stdioConnection();
     case 'node-ipc': return ipcConnection();
-    case 'socket': return socketConnection({ port: transport.port });
-    case 'pipe': return socketConnection({ path: transport.name });
+    case 'pipe': return pipeConnection(transport.name);
   }
 }
 

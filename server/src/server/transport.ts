@@ -5,20 +5,22 @@
  *
  *   --stdio                          standard input and output
  *   --node-ipc                       Node's IPC channel to the process that started the server
- *   --socket=PORT, --socket PORT     a TCP connection to PORT on 127.0.0.1, where the editor listens
  *   --pipe=NAME, --pipe NAME         a connection to the local socket (on Windows, named pipe) NAME
+ *
+ * The library's fourth form, `--socket=PORT` (a TCP connection to a port where the editor
+ * listens), is refused with a one-line problem: it would take the network stack, and Pneumark
+ * opens no network connection, not even to 127.0.0.1; a local pipe does the same job.
  *
  * The first of them on the command line wins, as in the library; other arguments (such as
  * `--clientProcessId`, which the library reads itself) are ignored here. Unlike the library, a
- * port that is not a whole number from 1 to 65535, or a pipe name that is not local, is refused
- * with a one-line problem instead of falling through to "no transport".
+ * pipe name that is not local is refused with a one-line problem instead of falling through to
+ * "no transport".
  */
 import { z } from 'zod';
 
 export type Transport =
   | { readonly kind: 'stdio' }
   | { readonly kind: 'node-ipc' }
-  | { readonly kind: 'socket'; readonly port: number }
   | { readonly kind: 'pipe'; readonly name: string };
 
 /** What the server says on stderr (one line) before it exits with `TRANSPORT_PROBLEM_STATUS`. */
@@ -29,14 +31,10 @@ export interface TransportProblem {
 /** The exit status of a server started with no transport or a wrong one (as the CLI's usage errors). */
 export const TRANSPORT_PROBLEM_STATUS = 2;
 
-export const NO_TRANSPORT = 'pneumark language server: no transport given: start it with --stdio, --node-ipc, --socket=PORT or --pipe=NAME';
+export const NO_TRANSPORT = 'pneumark language server: no transport given: start it with --stdio, --node-ipc or --pipe=NAME';
 
-const PORT_MESSAGE = 'expected a whole number from 1 to 65535';
-
-const portSchema = z.string()
-  .regex(/^\d{1,5}$/, { message: PORT_MESSAGE })
-  .transform(Number)
-  .pipe(z.number().int().min(1, { message: PORT_MESSAGE }).max(65535, { message: PORT_MESSAGE }));
+/** Why `--socket` is refused. */
+export const NO_SOCKET = 'pneumark language server: --socket is not offered: Pneumark opens no network connection, not even to 127.0.0.1; start it with --stdio, --node-ipc or --pipe=NAME';
 
 /**
  * A local socket's path, or on Windows a pipe on this machine (`\\.\pipe\…`): a pipe name of the
@@ -65,11 +63,8 @@ export function transportOf(argv: readonly string[], platform: NodeJS.Platform =
     const eq = arg.indexOf('=');
     const name = eq < 0 ? arg : arg.slice(0, eq);
     if (name !== '--socket' && name !== '--pipe') continue;
+    if (name === '--socket') return { problem: NO_SOCKET };
     const value = eq < 0 ? argv[i + 1] : arg.slice(eq + 1);
-    if (name === '--socket') {
-      const port = portSchema.safeParse(value ?? '');
-      return port.success ? { kind: 'socket', port: port.data } : problem(name, value, port.error.issues[0]?.message ?? PORT_MESSAGE);
-    }
     const pipe = pipeSchema(platform).safeParse(value ?? '');
     return pipe.success ? { kind: 'pipe', name: pipe.data } : problem(name, value, pipe.error.issues[0]?.message ?? 'expected a local pipe name');
   }
