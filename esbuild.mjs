@@ -6,13 +6,20 @@ import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 const production = process.argv.includes('--production');
 
 /**
- * No network in the editor side: `net` (pulled in by the protocol library for transports we never
- * use) resolves to a stub that refuses, so no network module is reachable from the bundles.
+ * No network in the editor side: `net` (pulled in by the protocol library for its socket helpers)
+ * and the HTTP modules resolve to a stub that refuses, so no network module is reachable from the
+ * bundles, with one exception: server/src/server/local-socket.ts, the language server's
+ * connection to the editor for `--pipe` (a local socket path, never a host and port), gets the
+ * real `net`.
  */
+const LOCAL_SOCKET = new URL('./server/src/server/local-socket.ts', import.meta.url).pathname;
 const noNetwork = {
   name: 'pneumark-no-network',
   setup(b) {
-    b.onResolve({ filter: /^(node:)?(net|http|https|http2|tls|dgram|dns)$/ }, () => ({ path: new URL('./server/src/node/no-network.ts', import.meta.url).pathname }));
+    b.onResolve({ filter: /^(node:)?(net|http|https|http2|tls|dgram|dns)$/ }, (args) =>
+      args.importer === LOCAL_SOCKET && /^(node:)?net$/.test(args.path)
+        ? { path: args.path, external: true }
+        : { path: new URL('./server/src/node/no-network.ts', import.meta.url).pathname });
   },
 };
 

@@ -5,6 +5,7 @@ import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 
 const META = 'dist/meta';
+const LOCAL_SOCKET = 'server/src/server/local-socket.ts';
 const NETWORK = /^(node:)?(net|http|https|http2|tls|dgram|dns|inspector)$/;
 
 interface Metafile {
@@ -19,12 +20,22 @@ describe('bundles make no network calls', () => {
     expect(bundles.map((b) => b.name).sort()).toEqual(expect.arrayContaining(['cli', 'core', 'extension', 'server', 'webview-trends']));
   });
 
-  it.each(bundles.map((b) => [b.name, b.meta] as const))('%s imports no network module', (_name, meta) => {
+  it.each(bundles.map((b) => [b.name, b.meta] as const))('%s imports no network module (the server: only net, from local-socket.ts, for a local pipe)', (name, meta) => {
     const reached: string[] = [];
     for (const [file, info] of Object.entries(meta.inputs)) {
       for (const imp of info.imports ?? []) if (NETWORK.test(imp.path)) reached.push(`${imp.path} from ${file}`);
     }
-    expect(reached).toEqual([]);
+    // The language server's connection to the editor for --pipe (a local socket; --socket is refused).
+    expect(reached).toEqual(name === 'server' ? [`node:net from ${LOCAL_SOCKET}`] : []);
+  });
+
+  it('connects the language server only to a local socket path, never to a host and port', () => {
+    // The code, its comments left out.
+    const source = readFileSync(LOCAL_SOCKET, 'utf8').replace(/\/\*[\s\S]*?\*\//g, '').replace(/\/\/.*$/gm, '');
+    const calls = [...source.matchAll(/createConnection\(([^)]*)\)/g)].map((m) => m[1]);
+    expect(calls).toEqual(['{ path }']);
+    expect(source).not.toMatch(/\b(host|port)\b/);
+    expect(source).not.toMatch(/\b(connect|Socket|createServer|listen)\s*\(/);
   });
 
   it.each(bundles.map((b) => [b.name, b.meta] as const))('%s contains no HTTP client or socket use', (_name, meta) => {
@@ -42,8 +53,10 @@ describe('bundles make no network calls', () => {
     expect(readFileSync('dist/extension.js', 'utf8')).not.toMatch(/--inspect(-brk)?=\d/);
   });
 
-  it('routes the protocol library’s socket transports to a stub that refuses', () => {
+  it('routes the protocol library’s own socket helpers to a stub that refuses', () => {
     const server = readFileSync('dist/server.js', 'utf8');
     expect(server).toContain('Pneumark makes no network connections');
+    // Only local-socket.ts gets the real module: the bundle requires it once.
+    expect(server.match(/require\("(node:)?net"\)/g)).toEqual(['require("node:net")']);
   });
 });

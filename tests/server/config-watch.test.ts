@@ -10,7 +10,7 @@ import { pathToFileURL } from 'node:url';
 import { afterAll, afterEach, beforeAll, describe, expect, it, vi } from 'vitest';
 import type { PublishDiagnosticsParams } from 'vscode-languageserver-protocol';
 import { ProjectConfigs } from '../../server/src/node/project-config';
-import { ConfigWatcher, filesToWatch, foldersToWatch, type Watch, type WatchHandle } from '../../server/src/server/config-watch';
+import { ConfigWatcher, filesToWatch, foldersToWatch, missingLinkTargetOf, type Watch, type WatchHandle } from '../../server/src/server/config-watch';
 import { workspacePaths } from '../../server/src/server/server';
 import { startClient, type LspClient } from './lsp-client';
 
@@ -76,6 +76,54 @@ describe.runIf(posix)('the file a linked project file leads to', () => {
       symlinkSync(join(shared, 'gone.json'), join(shared, 'dangling.json'));
       expect(filesToWatch(join(shared, 'dangling.json'), [])).toEqual([]);
       expect(filesToWatch(null, [])).toEqual([]);
+    } finally {
+      rmSync(root, { recursive: true, force: true });
+    }
+  });
+
+  it('that is not made yet is watched for where the lookup passes a link to nothing, up to the file that applies', () => {
+    const root = tempRoot();
+    try {
+      const ws = join(root, 'ws');
+      const notes = join(ws, 'notes');
+      mkdirSync(notes, { recursive: true });
+      mkdirSync(join(root, 'shared'));
+      const real = (p: string) => join(realpathSync(dirname(p)), basename(p));
+      const note = join(notes, 'n.pneu');
+      // ws/pneumark.config.json -> ../shared/pneumark.config.json, not made yet: read from the link's folder.
+      symlinkSync(join('..', 'shared', CONFIG), join(ws, CONFIG));
+      expect(missingLinkTargetOf(join(ws, CONFIG))).toBe(real(join(root, 'shared', CONFIG)));
+      expect(filesToWatch(null, [ws], note)).toEqual([real(join(root, 'shared', CONFIG))]);
+      // Nothing for a link below the file that applies, nor above it.
+      writeFileSync(join(notes, CONFIG), '{}\n');
+      expect(filesToWatch(join(notes, CONFIG), [ws], note)).toEqual([]);
+      unlinkSync(join(notes, CONFIG));
+      writeFileSync(join(root, CONFIG), '{}\n');
+      expect(filesToWatch(join(root, CONFIG), [ws], join(root, 'n.pneu'))).toEqual([]);
+      // The editor reports a project file made in a workspace folder.
+      unlinkSync(join(ws, CONFIG));
+      symlinkSync(join('team', CONFIG), join(ws, CONFIG));
+      expect(filesToWatch(null, [ws], note)).toEqual([]);
+      expect(filesToWatch(null, [], note)).toEqual([real(join(ws, 'team'))]);
+      // Through every link on the way; a folder not made yet: the first missing one, in the nearest that exists.
+      unlinkSync(join(ws, CONFIG));
+      symlinkSync(join(root, 'shared', 'via.json'), join(ws, CONFIG));
+      symlinkSync(join('..', 'later', 'deeper', 'team.json'), join(root, 'shared', 'via.json'));
+      expect(missingLinkTargetOf(join(ws, CONFIG))).toBe(real(join(root, 'later')));
+      mkdirSync(join(root, 'later'));
+      expect(missingLinkTargetOf(join(ws, CONFIG))).toBe(real(join(root, 'later', 'deeper')));
+      mkdirSync(join(root, 'later', 'deeper'));
+      expect(missingLinkTargetOf(join(ws, CONFIG))).toBe(real(join(root, 'later', 'deeper', 'team.json')));
+      // Not a link, a link to a file, a loop of links, a link through a file: nothing.
+      writeFileSync(join(root, 'later', 'deeper', 'team.json'), '{}\n');
+      expect(missingLinkTargetOf(join(ws, CONFIG))).toBeNull();
+      expect(missingLinkTargetOf(join(root, CONFIG))).toBeNull();
+      expect(missingLinkTargetOf(join(root, 'nothing.json'))).toBeNull();
+      symlinkSync(join(root, 'loop-b.json'), join(root, 'loop-a.json'));
+      symlinkSync(join(root, 'loop-a.json'), join(root, 'loop-b.json'));
+      expect(missingLinkTargetOf(join(root, 'loop-a.json'))).toBeNull();
+      symlinkSync(join(root, CONFIG, 'x.json'), join(root, 'through-a-file.json'));
+      expect(missingLinkTargetOf(join(root, 'through-a-file.json'))).toBeNull();
     } finally {
       rmSync(root, { recursive: true, force: true });
     }
@@ -391,6 +439,46 @@ describe.runIf(posix)('a project file above the workspace, over the protocol', (
     }
   });
 
+  it('that is a link to a file not made yet is read once that file is made', async () => {
+    // ln -s ../shared/pneumark.config.json pneumark.config.json, in the workspace, before ../shared/pneumark.config.json exists.
+    const shared = join(root, 'later-shared');
+    mkdirSync(shared);
+    const link = join(ws, CONFIG);
+    symlinkSync(join('..', 'later-shared', CONFIG), link);
+    try {
+      const uri = client.open(join(ws, 'h.pneu'), NOTE);
+      expect(threshold(await client.diagnostics(uri))).toBeNull();
+      let count = client.published.length;
+      writeFileSync(join(shared, CONFIG), '{ "hypoxaemiaBelowMmhg": 70 }\n');
+      await diagnosticsWith(uri, count, '70');
+      // Then watched as any link's file is.
+      count = client.published.length;
+      writeFileSync(join(shared, CONFIG), '{ "hypoxaemiaBelowMmhg": 75 }\n');
+      await diagnosticsWith(uri, count, '75');
+      await closeNote(client, uri);
+    } finally {
+      unlinkSync(link);
+      rmSync(shared, { recursive: true, force: true });
+    }
+  });
+
+  it('that is a link into folders not made yet is read once they and the file are made', async () => {
+    const link = join(ws, CONFIG);
+    symlinkSync(join('..', 'later', 'team', 'settings.json'), link);
+    try {
+      const uri = client.open(join(ws, 'i.pneu'), NOTE);
+      expect(threshold(await client.diagnostics(uri))).toBeNull();
+      const count = client.published.length;
+      mkdirSync(join(root, 'later', 'team'), { recursive: true });
+      writeFileSync(join(root, 'later', 'team', 'settings.json'), '{ "hypoxaemiaBelowMmhg": 72 }\n');
+      await diagnosticsWith(uri, count, '72');
+      await closeNote(client, uri);
+    } finally {
+      unlinkSync(link);
+      rmSync(join(root, 'later'), { recursive: true, force: true });
+    }
+  });
+
   it('analyses a note once for a change both the client and a watch report, inside the workspace or not', async () => {
     const inside = join(ws, 'inside');
     const outside = join(root, 'outside');
@@ -498,6 +586,22 @@ describe.runIf(process.platform === 'linux')('the watches the server holds (Linu
       await client.close();
       rmSync(root, { recursive: true, force: true });
     }
+  });
+});
+
+describe.runIf(process.platform === 'linux')('the watches for a linked project file that leads to nothing yet (Linux: /proc)', () => {
+  it('are on the folder it would lead to, and let go with the rest when the note is closed', async () => {
+    await inWorkspace(async (root, ws, client) => {
+      const shared = join(root, 'shared');
+      mkdirSync(shared);
+      symlinkSync(join('..', 'shared', CONFIG), join(ws, CONFIG));
+      const pid = client.process.pid!;
+      const uri = client.open(join(ws, 'a.pneu'), NOTE);
+      await client.diagnostics(uri);
+      expect(watchedInodes(pid)).toContain(statSync(shared).ino);
+      await closeNote(client, uri);
+      expect(watchedInodes(pid)).toEqual([]);
+    });
   });
 });
 

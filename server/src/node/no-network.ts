@@ -1,11 +1,12 @@
 /**
- * Stands in for Node's `net` module in the language server and extension bundles. The protocol
- * library offers socket and named-pipe transports that Pneumark never uses (it talks over stdio or
- * IPC), so the bundles carry no way to open a network connection: any attempt fails loudly.
- * The bundle test (tests/security/network.test.ts) checks that no network module is reachable.
+ * Stands in for Node's `net` module (and the HTTP modules) in every bundle. The protocol library's
+ * own socket and named-pipe helpers land here, so they fail loudly; the language server's
+ * `--pipe` transport connects through server/src/server/local-socket.ts, the one module the
+ * build gives the real `net` (a local socket path only; `--socket` is refused). The bundle test
+ * (tests/security/network.test.ts) checks that no other network module is reachable.
  */
 function refuse(): never {
-  throw new Error('Pneumark makes no network connections (socket and pipe transports are not available).');
+  throw new Error('Pneumark makes no network connections (its language server talks to the editor over stdio, Node IPC or a local pipe).');
 }
 
 export const createServer = refuse;

@@ -16,10 +16,14 @@
  *
  * A project file may be a symbolic link to a shared file elsewhere: a change of that file makes no
  * event in the link's folder, so the folder of the file it leads to (`linkTargetOf`) is watched
- * too, for events about that file only, with the note's other folders and let go with them.
+ * too, for events about that file only, with the note's other folders and let go with them. So is
+ * the folder where a link that leads to nothing yet would lead (`missingLinkTargetOf`), in each
+ * folder the lookup passes through, so that the note reads the file once it is made; where that
+ * folder does not exist either, the nearest folder above it that does is watched for the first
+ * missing one, and each change there moves the watch down as the folders appear.
  */
-import { lstatSync, realpathSync, statSync, watch } from 'node:fs';
-import { basename, dirname, sep } from 'node:path';
+import { lstatSync, readlinkSync, realpathSync, statSync, watch } from 'node:fs';
+import { basename, dirname, join, resolve, sep } from 'node:path';
 import { CONFIG_FILE_NAME } from '../core/config';
 import { LOOKUP_DEPTH } from '../node/project-config';
 
@@ -67,15 +71,98 @@ export function linkTargetOf(configPath: string | null): string | null {
   }
 }
 
+/** Links followed, at most, from a project file to what it leads to (as the system's own limit, ELOOP). */
+const MAX_LINKS = 40;
+
+/**
+ * Where a project file that is a symbolic link to nothing (yet) would lead, through every link on
+ * the way: the file whose making would give the note a project file to read. Where that file's
+ * folder does not exist either, the first missing folder on the way to it instead (whose making is
+ * the first step). The existing part of the path is given as it really is (its links resolved),
+ * as `linkTargetOf` gives it. Null when the file is not a link, leads to a file, or cannot be
+ * followed (a loop of links, a folder that may not be read).
+ */
+export function missingLinkTargetOf(configPath: string): string | null {
+  return missingLinkOf(configPath)?.watch ?? null;
+}
+
+/** The file a link to nothing would lead to (`path`, its links on the way not resolved), and what to watch for it. */
+function missingLinkOf(configPath: string): { readonly path: string; readonly watch: string } | null {
+  let path = configPath;
+  try {
+    if (!lstatSync(path).isSymbolicLink()) return null;
+  } catch {
+    return null;
+  }
+  for (let hops = 0; hops < MAX_LINKS; hops++) {
+    let stat;
+    try {
+      stat = lstatSync(path);
+    } catch (error) {
+      if ((error as { code?: unknown }).code !== 'ENOENT') return null;
+      const watch = nearestMissing(path);
+      return watch === null ? null : { path, watch };
+    }
+    if (!stat.isSymbolicLink()) return null;
+    try {
+      // A relative target is read from the link's real folder (`..` of a folder reached through a link is its real parent).
+      path = resolve(realpathSync.native(dirname(path)), readlinkSync(path));
+    } catch {
+      return null;
+    }
+  }
+  return null;
+}
+
+/** `path` (missing) with its nearest existing folder resolved, cut after the first part below it that is missing. */
+function nearestMissing(path: string): string | null {
+  let missing = path;
+  for (let depth = 0; depth < LOOKUP_DEPTH * 4; depth++) {
+    const parent = dirname(missing);
+    if (parent === missing) return null;
+    let real: string;
+    try {
+      real = realpathSync.native(parent);
+    } catch (error) {
+      if ((error as { code?: unknown }).code !== 'ENOENT') return null;
+      missing = parent;
+      continue;
+    }
+    // The parent exists now, but through a link that leads elsewhere it may be a file: nothing to watch in it.
+    try {
+      if (!statSync(real).isDirectory()) return null;
+    } catch {
+      return null;
+    }
+    return join(real, basename(missing));
+  }
+  return null;
+}
+
 /**
  * The files other than project files to watch for a note whose project file is `found`: the file
- * it leads to when it is a link, unless the editor reports changes of that file itself (a file of
- * the project file's name in a workspace folder).
+ * it leads to when it is a link, and, given the note's path, where each project file the lookup
+ * passed over on its way up (from the note's folder to `found`'s) would lead if it is a link to
+ * nothing yet (`missingLinkTargetOf`); in each case unless the editor reports changes of that
+ * file itself (a file of the project file's name in a workspace folder).
  */
-export function filesToWatch(found: string | null, workspaceFolders: readonly string[]): string[] {
+export function filesToWatch(found: string | null, workspaceFolders: readonly string[], notePath?: string): string[] {
+  const files: string[] = [];
+  const reported = (file: string) => basename(file) === CONFIG_FILE_NAME && insideFolders(dirname(file), workspaceFolders);
   const target = linkTargetOf(found);
-  if (target === null) return [];
-  return basename(target) === CONFIG_FILE_NAME && insideFolders(dirname(target), workspaceFolders) ? [] : [target];
+  if (target !== null && !reported(target)) files.push(target);
+  if (notePath === undefined) return files;
+  const last = found === null ? null : dirname(found);
+  let dir = dirname(notePath);
+  for (let depth = 0; depth < LOOKUP_DEPTH && dir !== last; depth++) {
+    const missing = missingLinkOf(join(dir, CONFIG_FILE_NAME));
+    // The editor reports the making of a project file in a workspace folder (the last step, whatever folders come first).
+    if (missing !== null && !reported(missing.path) && !files.includes(missing.watch)) files.push(missing.watch);
+    const parent = dirname(dir);
+    if (parent === dir) break;
+    dir = parent;
+  }
+  return files;
 }
 
 /** What the watcher needs of `fs.watch` (replaced in tests). */

@@ -1,9 +1,15 @@
 /**
  * Entry of the bundled language server (dist/server.js). The transport comes from the command
- * line: `--stdio` (as the VS Code extension and most editors start it) or `--node-ipc`.
- * On stdio the messages are written by our ASCII JSON encoder (see wire.ts). On both, requests
- * after a shutdown request are refused with InvalidRequest (shutdown-gate.ts). Logging goes to
- * the connection's console, never to stdout, which carries the protocol.
+ * line (transport.ts): `--stdio` (as the VS Code extension and most editors start it),
+ * `--node-ipc` or `--pipe=NAME` (a local socket or named pipe); with none of them, with
+ * `--socket` (Pneumark opens no network connection) or a pipe that is not local, the server says
+ * so in one line on stderr and exits with status 2.
+ * On stdio and pipes the messages are written by our ASCII JSON encoder (see wire.ts).
+ * On every transport, requests after a shutdown request are refused with InvalidRequest
+ * (shutdown-gate.ts), and the server exits with status 0 on `exit` after `shutdown` (1 without
+ * it: the library's exit handler); when the client closes its end of stdio or a pipe,
+ * the server ends with the same statuses. Logging goes to the connection's console, never to
+ * stdout, which on stdio carries the protocol.
  */
 import { format } from 'node:util';
 import { keepYoungGenerationSmall } from './memory';
@@ -11,9 +17,21 @@ import { keepYoungGenerationSmall } from './memory';
 // Before anything sizable is allocated (see memory.ts).
 keepYoungGenerationSmall();
 
-import { createConnection, IPCMessageReader, IPCMessageWriter, ProposedFeatures, StreamMessageReader, StreamMessageWriter, type Connection } from 'vscode-languageserver/node';
+import {
+  createConnection,
+  IPCMessageReader,
+  IPCMessageWriter,
+  ProposedFeatures,
+  SocketMessageReader,
+  SocketMessageWriter,
+  StreamMessageReader,
+  StreamMessageWriter,
+  type Connection,
+} from 'vscode-languageserver/node';
+import { connectToEditor } from './local-socket';
 import { startServer } from './server';
 import { ShutdownGate } from './shutdown-gate';
+import { isTransportProblem, transportOf, TRANSPORT_PROBLEM_STATUS, type Transport } from './transport';
 import { asciiJsonEncoder } from './wire';
 
 function stdioConnection(): Connection {
@@ -47,8 +65,44 @@ function ipcConnection(): Connection {
   return createConnection(ProposedFeatures.all, gate.readerFor(new IPCMessageReader(process)), gate.writerFor(new IPCMessageWriter(process)));
 }
 
-startServer(
-  process.argv.includes('--stdio') ? stdioConnection()
-    : process.argv.includes('--node-ipc') ? ipcConnection()
-      : createConnection(ProposedFeatures.all),
-);
+/**
+ * Over a connection to the editor's local socket (`--pipe`), with the same gate and encoder as on
+ * stdio. The library's exit handler ends the server on `exit`; when the editor closes the
+ * connection first, the server ends as on stdio: status 0 after a shutdown request, 1 without.
+ * A connection that cannot be made (nothing listens there) or breaks is said in one line on
+ * stderr, and ends the server the same way.
+ */
+function pipeConnection(path: string): Connection {
+  const socket = connectToEditor(path);
+  const gate = new ShutdownGate();
+  const connection = createConnection(
+    ProposedFeatures.all,
+    gate.readerFor(new SocketMessageReader(socket)),
+    gate.writerFor(new SocketMessageWriter(socket, { contentTypeEncoder: asciiJsonEncoder })),
+  );
+  let shutdown = false;
+  connection.onShutdown(() => { shutdown = true; });
+  const end = () => process.exit(shutdown ? 0 : 1);
+  socket.on('error', (e: Error) => {
+    process.stderr.write(`pneumark language server: connection to ${path}: ${e.message}\n`);
+    end();
+  });
+  socket.on('close', end);
+  return connection;
+}
+
+function connectionFor(transport: Transport): Connection {
+  switch (transport.kind) {
+    case 'stdio': return stdioConnection();
+    case 'node-ipc': return ipcConnection();
+    case 'pipe': return pipeConnection(transport.name);
+  }
+}
+
+const transport = transportOf(process.argv.slice(2));
+if (isTransportProblem(transport)) {
+  process.stderr.write(`${transport.problem}\n`);
+  process.exit(TRANSPORT_PROBLEM_STATUS);
+} else {
+  startServer(connectionFor(transport));
+}

@@ -345,7 +345,8 @@ export function startServer(connection: Connection, collector: IdleCollector = n
 
   /**
    * Watches the folders outside the workspace whose project file would apply to the note (`found`
-   * is what was read there), and the folder of the file it leads to when it is a link, and gives
+   * is what was read there), and the folder of the file it leads to when it is a link (or would
+   * lead to, for a link on the way up that leads to nothing yet), and gives
    * the project file that applies. A file made in a folder between the lookup and the start of its
    * watch would go unnoticed: so when a watch starts, the folders are looked at once more.
    */
@@ -353,7 +354,7 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     const path = notePathOf(uri);
     if (path === null) return found;
     const watched = clientWatchedFolders();
-    const need = (file: FoundConfig | null) => watcher.need(uri, foldersToWatch(path, file?.path ?? null, watched), filesToWatch(file?.path ?? null, watched));
+    const need = (file: FoundConfig | null) => watcher.need(uri, foldersToWatch(path, file?.path ?? null, watched), filesToWatch(file?.path ?? null, watched, path));
     if (!need(found)) return found;
     const again = configs.forPath(path, true);
     if (configKey(again) !== configKey(found)) need(again);
