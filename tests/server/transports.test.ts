@@ -1,9 +1,10 @@
-// The transports of the bundled language server other than stdio: `--pipe` (a local socket, where
-// the client listens), with the shutdown gate of the Language Server Protocol (3.17, "Shutdown
+// The transports of the bundled language server other than stdio: `--node-ipc` (Node's IPC
+// channel to the process that started it) and `--pipe` (a local socket, where the client
+// listens), with the shutdown gate of the Language Server Protocol (3.17, "Shutdown
 // Request": requests after shutdown fail with InvalidRequest) and stdio's exit statuses; `--socket`
 // (TCP) refused, as Pneumark opens no network connection; and what the server does when started
 // without a usable transport.
-import { spawn, type ChildProcessWithoutNullStreams } from 'node:child_process';
+import { spawn, type ChildProcess } from 'node:child_process';
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -11,6 +12,8 @@ import { pathToFileURL } from 'node:url';
 import { afterEach, describe, expect, it } from 'vitest';
 import {
   createClientPipeTransport,
+  IPCMessageReader,
+  IPCMessageWriter,
   createProtocolConnection,
   ResponseError,
   type MessageReader,
@@ -24,7 +27,7 @@ const INVALID_REQUEST = -32600;
 const WAIT_MS = 15000;
 
 /** What a test started; stopped and removed after each test whatever happened. */
-const started: { children: ChildProcessWithoutNullStreams[]; closers: (() => void)[]; folders: string[] } = { children: [], closers: [], folders: [] };
+const started: { children: ChildProcess[]; closers: (() => void)[]; folders: string[] } = { children: [], closers: [], folders: [] };
 
 afterEach(() => {
   for (const child of started.children.splice(0)) if (child.exitCode === null && child.signalCode === null) child.kill('SIGKILL');
@@ -33,17 +36,17 @@ afterEach(() => {
 });
 
 interface Server {
-  readonly child: ChildProcessWithoutNullStreams;
+  readonly child: ChildProcess;
   /** The exit status, once the server has exited. */
   readonly exited: Promise<number | null>;
   stderr(): string;
 }
 
-function startServer(args: readonly string[]): Server {
-  const child = spawn(process.execPath, ['dist/server.js', ...args], { stdio: 'pipe' });
+function startServer(args: readonly string[], ipc = false): Server {
+  const child = spawn(process.execPath, ['dist/server.js', ...args], { stdio: ipc ? ['pipe', 'pipe', 'pipe', 'ipc'] : 'pipe' });
   started.children.push(child);
   let stderr = '';
-  child.stderr.on('data', (d: Buffer) => { stderr += d.toString(); });
+  child.stderr?.on('data', (d: Buffer) => { stderr += d.toString(); });
   const exited = new Promise<number | null>((resolve) => child.once('exit', (code) => resolve(code)));
   return { child, exited, stderr: () => stderr };
 }
@@ -55,7 +58,24 @@ function within<T>(what: string, promise: Promise<T>, server: Server): Promise<T
   });
 }
 
-type Listening = { readonly args: readonly string[]; onConnected(): Promise<[MessageReader, MessageWriter]>; close(): void };
+type Listening = {
+  readonly args: readonly string[];
+  /** The server is started with an IPC channel (`--node-ipc`). */
+  readonly ipc?: boolean;
+  onConnected(server: ChildProcess): Promise<[MessageReader, MessageWriter]>;
+  /** Closes the client's end of the connection. */
+  hangUp(server: ChildProcess, connection: ProtocolConnection): void;
+};
+
+/** The client's end for `--node-ipc`: the IPC channel of the server's process. */
+function ipcListening(): Listening {
+  return {
+    args: ['--node-ipc'],
+    ipc: true,
+    onConnected: (child) => Promise.resolve([new IPCMessageReader(child), new IPCMessageWriter(child)]),
+    hangUp: (child, connection) => { connection.dispose(); child.disconnect(); },
+  };
+}
 
 /** The client's end for `--pipe`: a Unix domain socket in a temporary folder. */
 async function pipeListening(form: 'equals' | 'separate'): Promise<Listening> {
@@ -64,13 +84,13 @@ async function pipeListening(form: 'equals' | 'separate'): Promise<Listening> {
   const name = join(folder, 'lsp.sock');
   const transport = await createClientPipeTransport(name);
   started.closers.push(() => transport.close());
-  return { args: form === 'equals' ? [`--pipe=${name}`] : ['--pipe', name], onConnected: () => transport.onConnected(), close: () => transport.close() };
+  return { args: form === 'equals' ? [`--pipe=${name}`] : ['--pipe', name], onConnected: () => transport.onConnected(), hangUp: (_child, connection) => connection.dispose() };
 }
 
 /** Starts the server on the client's end, and initializes it over the connection it makes. */
-async function connect(listening: Listening): Promise<{ server: Server; connection: ProtocolConnection; published: PublishDiagnosticsParams[] }> {
-  const server = startServer(listening.args);
-  const [reader, writer] = await within('the server connecting', listening.onConnected(), server);
+async function connect(listening: Listening): Promise<{ server: Server; connection: ProtocolConnection; published: PublishDiagnosticsParams[]; hangUp(): void }> {
+  const server = startServer(listening.args, listening.ipc);
+  const [reader, writer] = await within('the server connecting', listening.onConnected(server.child), server);
   const connection = createProtocolConnection(reader, writer);
   started.closers.push(() => connection.dispose());
   const published: PublishDiagnosticsParams[] = [];
@@ -79,7 +99,7 @@ async function connect(listening: Listening): Promise<{ server: Server; connecti
   connection.listen();
   await within('initialize', connection.sendRequest('initialize', { processId: process.pid, rootUri: null, capabilities: { workspace: { configuration: true } } }), server);
   await connection.sendNotification('initialized', {});
-  return { server, connection, published };
+  return { server, connection, published, hangUp: () => listening.hangUp(server.child, connection) };
 }
 
 /** The error code a request was answered with; null when it was answered without an error. */
@@ -104,6 +124,7 @@ async function diagnosticsOf(published: PublishDiagnosticsParams[], uri: string,
 }
 
 const TRANSPORTS = [
+  ['--node-ipc', () => Promise.resolve(ipcListening())],
   ['--pipe=NAME', () => pipeListening('equals')],
   ['--pipe NAME', () => pipeListening('separate')],
 ] as const;
@@ -127,15 +148,15 @@ describe.each(TRANSPORTS)('over %s', (_form, listen) => {
   });
 
   it('exits with status 1 when the client closes the connection without a shutdown request', async () => {
-    const { server, connection } = await connect(await listen());
-    connection.dispose();
+    const { server, hangUp } = await connect(await listen());
+    hangUp();
     expect(await within('exit', server.exited, server)).toBe(1);
   });
 
   it('exits with status 0 when the client closes the connection after a shutdown request', async () => {
-    const { server, connection } = await connect(await listen());
+    const { server, connection, hangUp } = await connect(await listen());
     await connection.sendRequest('shutdown');
-    connection.dispose();
+    hangUp();
     expect(await within('exit', server.exited, server)).toBe(0);
   });
 
@@ -156,7 +177,7 @@ describe('a server started without a usable transport', () => {
   ])('%j: says so in one line on stderr and exits with status 2', async (args, line) => {
     const server = startServer(args);
     let stdout = '';
-    server.child.stdout.on('data', (d: Buffer) => { stdout += d.toString(); });
+    server.child.stdout?.on('data', (d: Buffer) => { stdout += d.toString(); });
     expect(await within('exit', server.exited, server)).toBe(TRANSPORT_PROBLEM_STATUS);
     expect(server.stderr()).toBe(`${line}\n`);
     expect(stdout).toBe('');

@@ -7,7 +7,7 @@
  * On stdio and pipes the messages are written by our ASCII JSON encoder (see wire.ts).
  * On every transport, requests after a shutdown request are refused with InvalidRequest
  * (shutdown-gate.ts), and the server exits with status 0 on `exit` after `shutdown` (1 without
- * it: the library's exit handler); when the client closes its end of stdio or a pipe,
+ * it: the library's exit handler); when the client closes its end of stdio, the IPC channel or a pipe,
  * the server ends with the same statuses. Logging goes to the connection's console, never to
  * stdout, which on stdio carries the protocol.
  */
@@ -59,10 +59,18 @@ function stdioConnection(): Connection {
   return connection;
 }
 
-/** Over Node's IPC channel (`--node-ipc`), with the same gate as on stdio. */
+/**
+ * Over Node's IPC channel (`--node-ipc`), with the same gate as on stdio; and as on stdio, the
+ * server ends when the process that started it closes the channel (status 0 after a shutdown
+ * request, 1 without), rather than waiting on a channel no message will come through.
+ */
 function ipcConnection(): Connection {
   const gate = new ShutdownGate();
-  return createConnection(ProposedFeatures.all, gate.readerFor(new IPCMessageReader(process)), gate.writerFor(new IPCMessageWriter(process)));
+  const connection = createConnection(ProposedFeatures.all, gate.readerFor(new IPCMessageReader(process)), gate.writerFor(new IPCMessageWriter(process)));
+  let shutdown = false;
+  connection.onShutdown(() => { shutdown = true; });
+  process.on('disconnect', () => process.exit(shutdown ? 0 : 1));
+  return connection;
 }
 
 /**
