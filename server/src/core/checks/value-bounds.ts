@@ -62,7 +62,7 @@ const HZ = unitById('Hz')!;
 const PER_MIN = unitById('/min')!;
 
 /** Whether the mode in force at a timepoint is high-frequency oscillation. */
-function inHfov(at: TimepointContext): boolean {
+export function inHfov(at: TimepointContext): boolean {
   return at.timepoint.values.get('mode')?.stated.word === 'HFOV';
 }
 
