@@ -415,7 +415,7 @@ function usesCarried(terms: readonly Term[], c: DeriveContext): boolean {
 }
 
 /** Settings that only a vent line states: one in force means the patient is on the ventilator. */
-const VENT_SETTINGS: readonly string[] = ['mode', 'vt', 'vent_rate', 'peep', 'pressure_support'];
+const VENT_SETTINGS: readonly string[] = ['mode', 'vt', 'vent_rate', 'peep', 'pressure_support', 'amplitude'];
 
 const NOT_IN_DOMAIN: Outcome = { kind: 'na', reason: 'the inputs are outside the range where the formula holds' };
 const IN_HFOV: Outcome = { kind: 'na', reason: 'not worked out in HFOV: its rate is an oscillation frequency, and tidal volume × rate is not its ventilation' };
