@@ -59,7 +59,31 @@ describe('Hz as a unit of the set rate', () => {
 
   it('is impossible above 20 Hz (1200 /min)', () => {
     const [f] = findings('@ 08:00\nvent mode HFOV, rate 25 Hz, fio2 0.6', 'PN301');
-    expect(f?.message).toMatch(/^Set rate 25 Hz is impossible/);
+    expect(f?.message).toBe('Set rate 25 Hz is impossible (expected 0 Hz to 20 Hz); it is not used in calculations.');
+  });
+});
+
+describe('bounds shown in Hz', () => {
+  // 180 /min = 3 Hz, 900 /min = 15 Hz, 60 /min = 1 Hz, 1200 /min = 20 Hz (1 Hz = 60 /min).
+  it('read as the whole numbers they are: `3 Hz to 15 Hz`, not `3.0 Hz to 15.0 Hz`', () => {
+    expect(findings('@ 08:00\nvent mode HFOV, rate 16 Hz', 'PN302')[0]?.message).toBe('Set rate 16 Hz is unusual (usually 3 Hz to 15 Hz): check the unit and the transcription.');
+    expect(findings('@ 08:00\nvent mode HFOV, rate 2 Hz', 'PN302')[0]?.message).toBe('Set rate 2 Hz is unusual (usually 3 Hz to 15 Hz): check the unit and the transcription.');
+  });
+
+  it('keep a value written with decimals on its side, without trailing zeros', () => {
+    // 15.004 Hz is 900.24 /min, above 900 /min; the bound reads 15 Hz, not 15.000 Hz.
+    expect(findings('@ 08:00\nvent mode HFOV, rate 15.004 Hz', 'PN302')[0]?.message).toMatch(/^Set rate 15\.004 Hz is unusual \(usually 3 Hz to 15 Hz\)/);
+  });
+
+  it('outside HFOV, the usual maximum is also given in /min, the unit such a rate is set in', () => {
+    expect(findings('@ 08:00\nvent mode VC, rate 2 Hz', 'PN302')[0]?.message).toMatch(/^Set rate 2 Hz is unusual \(usually at most 1 Hz, or 60 \/min\): /);
+  });
+
+  it('leave the precision of bounds in other units as it was: `2.0 kPa`, `6.80 to 7.80`', () => {
+    expect(findings('@ 08:00\nabg pco2 25 kPa', 'PN302')[0]?.message).toMatch(/\(usually 2\.0 kPa to 20\.0 kPa\)/);
+    expect(findings('@ 08:00\nabg ph 6.7', 'PN302')[0]?.message).toMatch(/\(usually 6\.80 to 7\.80\)/);
+    // A bare rate under HFOV is read in /min, and its bounds are shown in /min.
+    expect(findings('@ 08:00\nvent mode HFOV, rate 1000', 'PN302')[0]?.message).toMatch(/\(usually 180 \/min to 900 \/min\)/);
   });
 });
 
@@ -95,13 +119,13 @@ describe('the usual set rate depends on the mode', () => {
     expect(rateOf(text)).toBe(15);
     expect(derivation(text).derived.find((v) => v.id === 'minute_ventilation')?.value).toBeCloseTo(6, 9); // 400 mL × 15 /min
     const [f] = findings('@ 08:00\nvent mode PC, rate 2 Hz, fio2 0.6', 'PN302');
-    expect(f?.message).toBe('Set rate 2 Hz is unusual (usually at most 1.0 Hz): check the unit and the transcription. A rate in Hz is usual in HFOV; the mode in force here is PC. In /min it would be usual.');
+    expect(f?.message).toBe('Set rate 2 Hz is unusual (usually at most 1 Hz, or 60 /min): check the unit and the transcription. A rate in Hz is usual in HFOV; the mode in force here is PC. In /min it would be usual.');
     expect(f?.fixes.map((x) => x.title)).toEqual(['Write /min instead of Hz']);
     expect(findings('@ 08:00\nvent rate 5 Hz, fio2 0.6', 'PN302')[0]?.message).toMatch(/the mode in force here is not stated\. In \/min it would be usual\.$/);
     // `rate 14 Hz` in VC (840 /min): 14 /min would be usual, and /min is offered.
     const text14 = '@ 08:00\nvent mode VC, vt 400 mL, rate 14 Hz, peep 8';
     const [g] = findings(text14, 'PN302');
-    expect(g?.message).toBe('Set rate 14 Hz is unusual (usually at most 1.0 Hz): check the unit and the transcription. A rate in Hz is usual in HFOV; the mode in force here is VC. In /min it would be usual.');
+    expect(g?.message).toBe('Set rate 14 Hz is unusual (usually at most 1 Hz, or 60 /min): check the unit and the transcription. A rate in Hz is usual in HFOV; the mode in force here is VC. In /min it would be usual.');
     expect(g?.fixes.map((x) => x.title)).toEqual(['Write /min instead of Hz']);
     expect(findings(applyEdits(text14, g!.fixes[0]!.edits))).toEqual([]);
   });

@@ -39,7 +39,7 @@ describe('the column list', () => {
       'cao2_mL_dL', 'do2_mL_min',
       'carried_fields', 'findings_errors', 'findings_warnings', 'findings_information',
       // Added later: after every earlier column.
-      'mechanical_power_surrogate_J_min',
+      'mechanical_power_surrogate_J_min', 'amplitude_cmH2O',
     ]);
   });
 

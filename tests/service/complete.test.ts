@@ -197,7 +197,7 @@ describe('units', () => {
   });
 
   it('offers a section\'s own keys first, then those it shares with other lines', () => {
-    expect(labels('vent |')).toEqual(['mode', 'vt', 'rate', 'peep', 'plateau', 'peak', 'flow', 'map', 'ps', 've', 'etco2', 'fio2']);
+    expect(labels('vent |')).toEqual(['mode', 'vt', 'rate', 'peep', 'plateau', 'peak', 'flow', 'map', 'amplitude', 'ps', 've', 'etco2', 'fio2']);
     expect(labels('abg |').slice(0, 4)).toEqual(['ph', 'pco2', 'po2', 'hco3']);
   });
 

@@ -62,7 +62,7 @@ const HZ = unitById('Hz')!;
 const PER_MIN = unitById('/min')!;
 
 /** Whether the mode in force at a timepoint is high-frequency oscillation. */
-function inHfov(at: TimepointContext): boolean {
+export function inHfov(at: TimepointContext): boolean {
   return at.timepoint.values.get('mode')?.stated.word === 'HFOV';
 }
 
@@ -101,7 +101,11 @@ function bodySizeKg(at: TimepointContext): number | null {
 
 /** The unit a value was read in, as a message writes it after a number: ` mmHg`, ` /min`; none for pH or a fraction. */
 function unitSuffix(field: FieldDef, s: StatedValue): string {
-  const unit = readUnitOf(field, s);
+  return suffixOf(readUnitOf(field, s));
+}
+
+/** A unit as a message writes it after a number: ` mmHg`; none for pH or a fraction. */
+function suffixOf(unit: UnitDef | undefined): string {
   return unit && unit.id !== 'fraction' && unit.id !== 'ph' ? ` ${displayUnit(unit.id)}` : '';
 }
 
@@ -114,10 +118,23 @@ function asWritten(field: FieldDef, s: StatedValue): string {
   return `${field.label} ${s.item.value?.text ?? ''}${unitSuffix(field, s)}`;
 }
 
-function describe(bounds: Bounds, field: FieldDef, s: StatedValue): string {
+/**
+ * The bounds in the unit the value was read in (`0 Hz to 20 Hz`); with `canonicalToo`, followed by
+ * the same in the field's own unit where that differs (`at most 1 Hz, or 60 /min`).
+ */
+function describe(bounds: Bounds, field: FieldDef, s: StatedValue, canonicalToo = false): string {
   const unit = readUnitOf(field, s);
   const canonical = unitById(field.unit ?? '');
+  const shown = describeIn(bounds, field, s, unit, canonical);
+  if (!canonicalToo || !canonical || unit === canonical) return shown;
+  const other = describeIn(bounds, field, s, canonical, canonical);
+  const lead = shown.startsWith('at most ') ? 'at most ' : shown.startsWith('at least ') ? 'at least ' : '';
+  return `${shown}, or ${other.slice(lead.length)}`;
+}
+
+function describeIn(bounds: Bounds, field: FieldDef, s: StatedValue, unit: UnitDef | undefined, canonical: UnitDef | undefined): string {
   const inRead = (v: number) => (unit && canonical ? convert(v, canonical, unit) : v) ?? v;
+  const suffix = suffixOf(unit);
   // The value as written, so that each bound keeps it on its side: a height of 47.1 in is not
   // "usually 47 in to 87 in" when the bound is 47.24 in (120 cm).
   const first = inRead(s.value ?? s.parts?.[0] ?? NaN);
@@ -126,7 +143,7 @@ function describe(bounds: Bounds, field: FieldDef, s: StatedValue): string {
   const show = (v: number) => {
     const bound = inRead(v);
     const text = formatAgainst(bound, decimals.places, first, second);
-    return `${decimals.trim ? String(Number(text)) : text}${unitSuffix(field, s)}`;
+    return `${decimals.trim ? String(Number(text)) : text}${suffix}`;
   };
   if (bounds.min !== undefined && bounds.max !== undefined) return `${show(bounds.min)} to ${show(bounds.max)}`;
   if (bounds.min !== undefined) return `at least ${show(bounds.min)}`;
@@ -137,11 +154,13 @@ function describe(bounds: Bounds, field: FieldDef, s: StatedValue): string {
  * The decimals of a bound shown in the unit the value was read in. In the field's own unit, the
  * field's; in kPa, g/L, C or F, those the values are shown with elsewhere (`2.0 kPa`, `30 g/L`);
  * in a coarser unit, as many as keep the field's resolution, trailing zeros left off (1200 mL is
- * `1.2 L`, not `1 L`; 10 L/min is `0.17 L/s`, not `0 L/s`).
+ * `1.2 L`, not `1 L`; 10 L/min is `0.17 L/s`, not `0 L/s`). Hz is such a coarser unit here too:
+ * a frequency has no customary tenth, and the bounds of a rate in /min are whole numbers of Hz or
+ * sixtieths of one (`20 Hz`, `3 Hz to 15 Hz`, `at most 1 Hz`; never `20.0 Hz`).
  */
 function boundDecimals(field: FieldDef, unit: UnitDef | undefined, canonical: UnitDef | undefined): { places: number; trim: boolean } {
   if (!unit || !canonical || unit === canonical) return { places: field.decimals, trim: false };
-  const known = decimalsFor(unit.id, -1);
+  const known = unit === HZ ? -1 : decimalsFor(unit.id, -1);
   if (known >= 0) return { places: known, trim: false };
   const step = convert(10 ** -field.decimals, canonical, unit);
   if (step === null || !(step > 0)) return { places: field.decimals, trim: false };
@@ -216,7 +235,7 @@ export const unusualValue = defineCheck({
   severity: 'warning',
   tags: ['plausibility'],
   doc: {
-    fires: 'A value is possible but outside the usual (soft) bounds of its field: worth a second look at the unit or the transcription. Low arterial gas pressures are not flagged where the barometric pressure is below 500 mmHg, since they are real at extreme altitude. A tidal volume is usual from 2 mL per kg of body size (the smaller of the weight and the predicted body weight in force), or from 50 mL where the note gives neither; in HFOV, which moves 1–3 mL/kg a breath, it has no usual minimum. In HFOV the set rate is the oscillation frequency, usual from 3 to 15 Hz (180–900 /min) rather than at most 60 /min: a number written bare or in /min that is such a frequency in Hz (`rate 5`) is reported with `Hz` offered; a rate written in Hz in another mode is reported where it is above 60 /min (1 Hz), with a word that Hz is usual in HFOV, and /min offered where the number is usual in /min (`rate 14 Hz` in VC). A number written in another unit than its field\'s own is compared at the precision written: `pco2 20.0 kPa` is 150.01 mmHg, yet to a tenth of a kPa it is the usual maximum of 150 mmHg, and is not reported. A saturation written as a fraction with no unit (`spo2 0.94`) is reported with the percentage offered, and is not used until it is rewritten.',
+    fires: 'A value is possible but outside the usual (soft) bounds of its field: worth a second look at the unit or the transcription. Low arterial gas pressures are not flagged where the barometric pressure is below 500 mmHg, since they are real at extreme altitude. A tidal volume is usual from 2 mL per kg of body size (the smaller of the weight and the predicted body weight in force), or from 50 mL where the note gives neither; in HFOV, which moves 1–3 mL/kg a breath, it has no usual minimum. In HFOV the set rate is the oscillation frequency, usual from 3 to 15 Hz (180–900 /min) rather than at most 60 /min: a number written bare or in /min that is such a frequency in Hz (`rate 5`) is reported with `Hz` offered; a rate written in Hz in another mode is reported where it is above 60 /min (1 Hz), with its usual maximum in both units and a word that Hz is usual in HFOV, and /min offered where the number is usual in /min (`rate 14 Hz` in VC). A number written in another unit than its field\'s own is compared at the precision written: `pco2 20.0 kPa` is 150.01 mmHg, yet to a tenth of a kPa it is the usual maximum of 150 mmHg, and is not reported. A saturation written as a fraction with no unit (`spo2 0.94`) is reported with the percentage offered, and is not used until it is rewritten.',
     example: 'vitals hr 236',
     fix: 'Confirm the value; if it is right, the warning can stay (or the check can be switched off in settings). Where the number is usual in the field\'s other unit (`vt 0.45 mL`, meant as L), a quick fix writes that unit.',
   },
@@ -253,7 +272,8 @@ export const unusualValue = defineCheck({
     ctx.report({
       range: toRange(stated.line, stated.item.value?.span ?? stated.item.span),
       // pH has no unit to check.
-      message: `${asWritten(field, stated)} is unusual (usually ${describe(soft ?? {}, field, stated)}): check ${unitSuffix(field, stated) ? 'the unit and ' : ''}the transcription.${hint?.text ?? ''}${otherText}`,
+      // A rate in Hz outside HFOV has its usual bound in /min too, the unit such a rate is set in.
+      message: `${asWritten(field, stated)} is unusual (usually ${describe(soft ?? {}, field, stated, hint !== null && hint.fix === null)}): check ${unitSuffix(field, stated) ? 'the unit and ' : ''}the transcription.${hint?.text ?? ''}${otherText}`,
       ...(other ? { fixes: [other.fix] } : {}),
     });
   }),

@@ -4,13 +4,15 @@ import { toRange } from '../syntax/tree';
 import { formatAgainst } from '../util/format';
 import { derivedValueOf } from '../derive/registry';
 import { defineCheck, type TimepointContext } from './check';
+import { inHfov } from './value-bounds';
 
 /** The limits live with the formulas, so the check and the values shown beside it read the same numbers. */
 const VT_PER_KG_LIMIT = LUNG_PROTECTIVE_VT_MAX_ML_PER_KG;
 const DRIVING_PRESSURE_LIMIT_CMH2O = DRIVING_PRESSURE_FLAG_CMH2O;
 
 function derivedAbove(ctx: TimepointContext, id: string, limit: number, anchorField: string, message: (v: number) => string): void {
-  if (ctx.timepoint.values.originOf(anchorField) !== 'here') return;
+  // The limits are of conventional breaths; an oscillator delivers none (HFOV).
+  if (ctx.timepoint.values.originOf(anchorField) !== 'here' || inHfov(ctx)) return;
   const d = derivedValueOf(ctx.derivation, id);
   const anchor = ctx.timepoint.values.get(anchorField);
   if (!d || d.value <= limit + 1e-9 || !anchor || anchor.origin.kind !== 'here') return;
@@ -28,7 +30,7 @@ export const tidalVolumeHigh = defineCheck({
   severity: 'warning',
   tags: ['physiology'],
   doc: {
-    fires: `The tidal volume is above ${VT_PER_KG_LIMIT} mL per kg of predicted body weight (from the patient's height and sex), the top of the lung-protective range.`,
+    fires: `The tidal volume is above ${VT_PER_KG_LIMIT} mL per kg of predicted body weight (from the patient's height and sex), the top of the lung-protective range. Not in HFOV, whose oscillations are no conventional breaths.`,
     example: 'patient sex female, height 160 cm\n@ 08:00\nvent vt 520 mL, rate 16, peep 5',
     fix: 'Check the height and sex on the patient line and the tidal volume; whether to change the setting is a clinical decision.',
   },
@@ -45,13 +47,13 @@ export const plateauHigh = defineCheck({
   severity: 'warning',
   tags: ['physiology'],
   doc: {
-    fires: `The plateau pressure is above ${PLATEAU_LIMIT_CMH2O} cmH2O, the limit of the lung-protective protocol.`,
+    fires: `The plateau pressure is above ${PLATEAU_LIMIT_CMH2O} cmH2O, the limit of the lung-protective protocol. Not in HFOV, where no conventional breath has an end-inspiratory plateau.`,
     example: '@ 08:00\nvent peep 18, plateau 33',
     fix: 'Confirm the measurement (a true inspiratory hold); a clinical review decides what follows.',
   },
   source: SOURCES['ardsnet-2000-plateau'],
   runTimepoint(ctx) {
-    if (ctx.timepoint.values.originOf('plateau') !== 'here') return;
+    if (ctx.timepoint.values.originOf('plateau') !== 'here' || inHfov(ctx)) return;
     const plat = ctx.timepoint.values.get('plateau');
     if (!plat || plat.origin.kind !== 'here' || !plat.stated.usable || plat.stated.value === null || plat.stated.value <= PLATEAU_LIMIT_CMH2O) return;
     ctx.report({ range: toRange(plat.stated.line, plat.stated.item.span), message: `Plateau pressure ${formatAgainst(plat.stated.value, 0, PLATEAU_LIMIT_CMH2O)} cmH2O is above ${PLATEAU_LIMIT_CMH2O} cmH2O.` });
@@ -65,7 +67,7 @@ export const drivingPressureHigh = defineCheck({
   severity: 'warning',
   tags: ['physiology'],
   doc: {
-    fires: `The driving pressure (plateau − PEEP) is above ${DRIVING_PRESSURE_LIMIT_CMH2O} cmH2O, where higher driving pressures were associated with lower survival.`,
+    fires: `The driving pressure (plateau − PEEP) is above ${DRIVING_PRESSURE_LIMIT_CMH2O} cmH2O, where higher driving pressures were associated with lower survival. Not in HFOV, where driving pressure is not worked out: an oscillator gives no conventional breath with a plateau.`,
     example: '@ 08:00\nvent peep 8, plateau 27',
     fix: 'Confirm plateau and PEEP; a clinical review decides what follows.',
   },

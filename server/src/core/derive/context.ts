@@ -326,6 +326,15 @@ export class DeriveContext {
     return this.word('mode')?.word === 'HFOV' ? IN_HFOV : null;
   }
 
+  /**
+   * Where the mode in force is HFOV: the outcome of a value computed from the pressures or the
+   * volume of a conventional breath (plateau or peak − PEEP: driving pressure, static and dynamic
+   * compliance), which an oscillator does not deliver; else null.
+   */
+  oscillationBreath(): Outcome | null {
+    return this.word('mode')?.word === 'HFOV' ? NO_BREATH_IN_HFOV : null;
+  }
+
   /** PEEP in force: the ventilator's, else EPAP (NIV), else the CPAP level. */
   peepLike(): Term | null {
     return this.field('peep', 'PEEP') ?? this.field('epap', 'EPAP') ?? this.field('cpap_level', 'CPAP');
@@ -406,10 +415,11 @@ function usesCarried(terms: readonly Term[], c: DeriveContext): boolean {
 }
 
 /** Settings that only a vent line states: one in force means the patient is on the ventilator. */
-const VENT_SETTINGS: readonly string[] = ['mode', 'vt', 'vent_rate', 'peep', 'pressure_support'];
+const VENT_SETTINGS: readonly string[] = ['mode', 'vt', 'vent_rate', 'peep', 'pressure_support', 'amplitude'];
 
 const NOT_IN_DOMAIN: Outcome = { kind: 'na', reason: 'the inputs are outside the range where the formula holds' };
 const IN_HFOV: Outcome = { kind: 'na', reason: 'not worked out in HFOV: its rate is an oscillation frequency, and tidal volume × rate is not its ventilation' };
+const NO_BREATH_IN_HFOV: Outcome = { kind: 'na', reason: 'not worked out in HFOV: an oscillator gives no conventional breath with an end-inspiratory plateau or peak, so a plateau or peak less PEEP is no pressure that moved the tidal volume' };
 const ZERO_SET_RATE: Outcome = { kind: 'na', reason: 'the set rate is 0 in a mode that delivers mandatory breaths, and no rate is measured (see PN312)', withheldBy: 'PN312' };
 
 

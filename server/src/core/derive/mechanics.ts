@@ -78,9 +78,14 @@ export const vtPerKg = defineDerived({
     const perKg = vtPerKgPbw(vt.value, p.value);
     // Shown beside the 8 mL/kg top of the lung-protective range (PN403): 8.04 as 8.04, not 8.0.
     const decimals = perKg === null ? undefined : decimalsAgainst(perKg, 1, LUNG_PROTECTIVE_VT_MAX_ML_PER_KG);
-    return c.value(perKg, [vt, p], { notes: ['lung-protective target 6 mL/kg (4–8) in the ARDS Network protocol'], decimals });
+    // In HFOV the volume is an oscillation's, far below a conventional breath's: the quotient holds,
+    // the lung-protective range of conventional breaths does not apply (nor does PN403).
+    return c.value(perKg, [vt, p], { notes: c.oscillationBreath() ? OSCILLATION_VOLUME_NOTES : LUNG_PROTECTIVE_NOTES, decimals });
   },
 });
+
+const LUNG_PROTECTIVE_NOTES: readonly string[] = ['lung-protective target 6 mL/kg (4–8) in the ARDS Network protocol'];
+const OSCILLATION_VOLUME_NOTES: readonly string[] = ['in HFOV the volume of one oscillation, not compared with the lung-protective range of conventional breaths'];
 
 export const drivingPressureDef = defineDerived({
   id: 'driving_pressure',
@@ -96,6 +101,8 @@ export const drivingPressureDef = defineDerived({
     const plat = c.field('plateau', 'Pplat');
     const peep = c.field('peep', 'PEEP');
     if (!plat) return { kind: 'na', reason: 'needs a plateau pressure (inspiratory hold)' };
+    const hfov = c.oscillationBreath();
+    if (hfov) return hfov;
     if (!peep) return c.missing([peep, 'peep']);
     const dp = drivingPressure(plat.value, peep.value);
     // Shown beside the 15 cmH2O flag (PN405): 15.4 as 15.4, not as 15 next to "above 15".
@@ -118,6 +125,8 @@ export const complianceStaticDef = defineDerived({
     const plat = c.field('plateau', 'Pplat');
     const peep = c.field('peep', 'PEEP');
     if (!plat) return { kind: 'na', reason: 'needs a plateau pressure' };
+    const hfov = c.oscillationBreath();
+    if (hfov) return hfov;
     if (!vt || !peep) return c.missing([vt, 'vt'], [peep, 'peep']);
     return c.value(complianceStatic(vt.value, plat.value, peep.value), [vt, plat, peep]);
   },
@@ -138,6 +147,8 @@ export const complianceDynamicDef = defineDerived({
     const peak = c.field('peak', 'Ppeak');
     const peep = c.field('peep', 'PEEP');
     if (!peak) return { kind: 'na', reason: 'needs a peak pressure' };
+    const hfov = c.oscillationBreath();
+    if (hfov) return hfov;
     if (!vt || !peep) return c.missing([vt, 'vt'], [peep, 'peep']);
     return c.value(complianceDynamic(vt.value, peak.value, peep.value), [vt, peak, peep]);
   },

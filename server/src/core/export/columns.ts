@@ -6,14 +6,16 @@
  * The columns, in order:
  *   file, timepoint (0-based index), label, day, minutes (since day 1 00:00), offset_minutes
  *     (since the first timepoint whose time is known);
- *   every field of FIELDS in registry order: a number as `<fieldId>_<unitSlug>` in the field's
+ *   every field of FIELDS in registry order (but those added later, below): a number as `<fieldId>_<unitSlug>` in the field's
  *     canonical unit (`pao2_mmHg`, `fio2_fraction`, `spo2_pct`), blood pressure as
  *     `bp_systolic_mmHg` and `bp_diastolic_mmHg`, a word as the bare field id (`device`, `mode`);
  *   every derived value of DERIVED in order as `<id>_<unitSlug>`, bare when the id ends in `_ratio`
  *     or `_index` or the value has no unit (`pf_ratio`, `rox_index`, `fio2_estimated`), as
  *     `<id>_low_<unitSlug>` and `<id>_high_<unitSlug>` for an expected range, and with `_derived`
  *     after the id when a field has the same id (`barometric_derived_mmHg`);
- *   carried_fields, findings_errors, findings_warnings, findings_information.
+ *   carried_fields, findings_errors, findings_warnings, findings_information;
+ *   then the fields and derived values added after the first published list (`ADDED_LATER`), in
+ *   the order added: mechanical_power_surrogate_J_min, amplitude_cmH2O.
  *
  * Cells:
  * - Field values are those in force at the timepoint: stated there, carried from an earlier
@@ -217,6 +219,9 @@ const WHERE_FROM: Readonly<Record<string, string>> = {
   delta_ratio: 'Delta ratio (Δ ratio), derived: ({AG} − 12) ÷ (24 − {HCO3}), where {AG} is the anion gap corrected for albumin (`anion_gap_albumin_corrected_mmol_L`) when albumin is known, else the anion gap (`anion_gap_mmol_L`), and {HCO3} the serum bicarbonate (`hco3_serum_mmol_L`), else the gas HCO3 (`hco3_mmol_L`).',
   minute_ventilation: 'Minute ventilation (VE), derived: {VT} × {RR} ÷ 1000, where {RR} is the measured rate (`rr_per_min`), else the set rate (`vent_rate_per_min`); empty in HFOV, whose set rate is an oscillation frequency.',
   mechanical_power: 'Mechanical power (simplified) (MP), derived: 0.098 × {RR} × {VT} ÷ 1000 × ({Ppeak} − ({Pplat} − {PEEP}) ÷ 2), where {RR} is the measured rate (`rr_per_min`), else the set rate (`vent_rate_per_min`); empty in HFOV, whose set rate is an oscillation frequency.',
+  driving_pressure: 'Driving pressure (ΔP), derived: {Pplat} − {PEEP}; empty in HFOV, which gives no conventional breath with a plateau.',
+  compliance_static: 'Static compliance (Cstat), derived: {VT} ÷ ({Pplat} − {PEEP}); empty in HFOV, which gives no conventional breath with a plateau.',
+  compliance_dynamic: 'Dynamic compliance (Cdyn), derived: {VT} ÷ ({Ppeak} − {PEEP}); empty in HFOV, which gives no conventional breath with a peak.',
   cao2: 'Arterial oxygen content (CaO2), derived: {Hüfner} × {Hb} × {SaO2} ÷ 100 + 0.003 × {PaO2}, where {SaO2} is the SaO2 (`sao2_pct`), else the SpO2 (`spo2_pct`), and {Hüfner} the hufnerConstant setting (1.34 mL/g by default).',
   anion_gap: 'Anion gap (AG), derived: {Na} − ({Cl} + {HCO3}), where {HCO3} is the serum bicarbonate (`hco3_serum_mmol_L`), else the gas HCO3 (`hco3_mmol_L`); without potassium.',
 };
@@ -291,21 +296,30 @@ function summaryColumns(): Column[] {
 }
 
 /**
- * Derived values added after the first published column list: their columns come after every
- * earlier column, in the order added, so a reader that counts columns finds the old ones where
- * they were.
+ * Fields and derived values added after the first published column list: their columns come
+ * after every earlier column, in the order added, so a reader that counts columns finds the old
+ * ones where they were.
  */
-const ADDED_LATER: readonly string[] = ['mechanical_power_surrogate'];
+const ADDED_LATER: readonly { readonly kind: 'field' | 'derived'; readonly id: string }[] = [
+  { kind: 'derived', id: 'mechanical_power_surrogate' },
+  { kind: 'field', id: 'amplitude' },
+];
 
 function buildColumns(): readonly Column[] {
   const fieldIds = new Set(FIELDS.map((f) => f.id));
-  const later = new Set(ADDED_LATER);
+  const laterFields = new Set(ADDED_LATER.filter((a) => a.kind === 'field').map((a) => a.id));
+  const laterDerived = new Set(ADDED_LATER.filter((a) => a.kind === 'derived').map((a) => a.id));
   const columns = [
     ...timepointColumns(),
-    ...FIELDS.flatMap((f, i) => fieldColumns(f, i)),
-    ...DERIVED.filter((d) => !later.has(d.id)).flatMap((d) => derivedColumns(d, fieldIds)),
+    ...FIELDS.flatMap((f, i) => (laterFields.has(f.id) ? [] : fieldColumns(f, i))),
+    ...DERIVED.filter((d) => !laterDerived.has(d.id)).flatMap((d) => derivedColumns(d, fieldIds)),
     ...summaryColumns(),
-    ...ADDED_LATER.flatMap((id) => {
+    ...ADDED_LATER.flatMap(({ kind, id }) => {
+      if (kind === 'field') {
+        const index = FIELDS.findIndex((f) => f.id === id);
+        if (index < 0) throw new Error(`export column for ${id}: no such field`);
+        return fieldColumns(FIELDS[index]!, index);
+      }
       const def = DERIVED.find((d) => d.id === id);
       if (!def) throw new Error(`export column for ${id}: no such derived value`);
       return derivedColumns(def, fieldIds);
