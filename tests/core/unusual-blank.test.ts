@@ -3,6 +3,7 @@
 // (grammar/README.md, blanks.ts); common practice, no source.
 import { describe, expect, it } from 'vitest';
 import { BLANKS, checkNote, isPlainBlank } from '../../server/src/core';
+import { applyEdits } from '../../server/src/core/service';
 import type { Finding } from '../../server/src/core/types';
 
 const unusual = (text: string): Finding[] => checkNote(text).findings.filter((f) => f.code === 'PN107');
@@ -45,6 +46,16 @@ describe('unusual blanks (PN107)', () => {
     const text = '@ 08:00\n\u00a0vitals hr 80\u2009\nvitals    rr 18 \u202f\n';
     expect(unusual(text).map((f) => f.fixes[0]!.title)).toEqual(['Remove the unusual blank', 'Remove the unusual blank', 'Remove the unusual blank']);
     expect(fixed(text)).toBe('@ 08:00\nvitals hr 80\nvitals    rr 18 \n');
+  });
+
+  it('writes a plain space for a line of unusual blanks alone, so no line end joins the next (a lone CR before it)', () => {
+    // Removing the blank would leave `\r\n`: one line end of two, and a line fewer.
+    const text = '@07:40\r\ufeff\n';
+    expect(unusual(text).map((f) => f.fixes[0]!.title)).toEqual(['Write a plain space']);
+    const after = applyEdits(text, unusual(text).flatMap((f) => f.fixes[0]!.edits));
+    expect(after).toBe('@07:40\r \n');
+    expect(checkNote(after).analysis.tree.lines).toHaveLength(checkNote(text).analysis.tree.lines.length);
+    expect(fixed('@ 08:00\n\u00a0\u2009\nvitals hr 80\n')).toBe('@ 08:00\n \nvitals hr 80\n');
   });
 
   it('gives a run of unusual blanks one finding, with each kind named once', () => {

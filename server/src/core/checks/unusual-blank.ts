@@ -45,12 +45,15 @@ function visit(ctx: CheckContext, node: LineNode): void {
     const start = i;
     while (i + 1 < end && isUnusual(text.charCodeAt(i + 1))) i++;
     const stop = i + 1;
-    // A space where the run alone separates two words; nothing where a blank is already next to it
-    // or where nothing comes before or after it on the line.
+    // A space where the run alone separates two words, or where it is the whole line (an empty line
+    // between the `\r` and the `\n` of a note would make one line end of two, and join the lines
+    // around it); nothing where a blank is already next to it, or where nothing comes before or
+    // after it on the line but other text does.
     const alone = start > 0 && stop < text.length && !isBlank(text.charCodeAt(start - 1)) && !isBlank(text.charCodeAt(stop));
+    const space = alone || (start === 0 && stop === text.length);
     const fix: LineFix = {
-      title: alone ? 'Write a plain space' : 'Remove the unusual blank',
-      edits: [{ span: { start, end: stop }, newText: alone ? ' ' : '' }],
+      title: space ? 'Write a plain space' : 'Remove the unusual blank',
+      edits: [{ span: { start, end: stop }, newText: space ? ' ' : '' }],
       preferred: true,
     };
     ctx.report({ range: toRange(node.line, { start, end: stop }), message: message(text, start, stop), fixes: [lineFixToFix(node.line, fix)] });
@@ -66,7 +69,7 @@ export const unusualBlank = defineCheck({
   doc: {
     fires: 'A blank other than a space or a tab separates what a line says: a no-break space, a narrow no-break space, a thin, hair, figure or ideographic space, a byte-order mark (U+FEFF) inside the note, or another of the blanks grammar/README.md lists (in the example, a no-break space between `hr` and `118`). It is read as a blank, so nothing is misread, but it looks like a space or like nothing, and a search, a diff or a spreadsheet takes it for a character. Comments, prose and timepoint labels are free text and are not looked at; nor is the byte-order mark that opens a file.',
     example: 'vitals hr\u00a0118',
-    fix: 'Write a plain space; the quick fix does it (or removes the blank where a space is already next to it, or nothing comes before or after it), also for the whole note.',
+    fix: 'Write a plain space; the quick fix does it (or removes the blank where a space is already next to it, or where nothing comes before or after it but other text does; a line of unusual blanks alone becomes one plain space), also for the whole note.',
   },
   source: 'format rule (grammar/README.md)',
   run(ctx) {
