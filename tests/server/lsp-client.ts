@@ -7,6 +7,7 @@ import { spawn, type ChildProcessWithoutNullStreams } from 'node:child_process';
 import { pathToFileURL } from 'node:url';
 import {
   createProtocolConnection,
+  ResponseError,
   StreamMessageReader,
   StreamMessageWriter,
   type ProtocolConnection,
@@ -216,4 +217,18 @@ export async function startClient(settings: Record<string, unknown> = {}, option
       return code;
     },
   }) as LspClient;
+}
+
+/** The code of InvalidRequest, the answer to a request after shutdown (LSP 3.17, "Shutdown Request"). */
+export const INVALID_REQUEST = -32600;
+
+/** The error code a request was answered with; null when it was answered without an error. */
+export async function errorCode(request: Promise<unknown>): Promise<number | null> {
+  try {
+    await request;
+    return null;
+  } catch (e) {
+    if (!(e instanceof ResponseError)) throw e;
+    return e.code;
+  }
 }

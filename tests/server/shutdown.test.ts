@@ -3,22 +3,9 @@
 // server is asked here, over a real stdio connection.
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { ResponseError } from 'vscode-languageserver-protocol';
 import { CONVERT_UNITS_REQUEST, SUMMARY_REQUEST, TRENDS_REQUEST } from '../../server/src/protocol';
-import { startClient } from './lsp-client';
+import { errorCode, INVALID_REQUEST, startClient } from './lsp-client';
 
-const INVALID_REQUEST = -32600;
-
-/** The error code a request was answered with; null when it was answered without an error. */
-async function errorCode(request: Promise<unknown>): Promise<number | null> {
-  try {
-    await request;
-    return null;
-  } catch (e) {
-    expect(e).toBeInstanceOf(ResponseError);
-    return (e as ResponseError<unknown>).code;
-  }
-}
 
 describe('after shutdown', () => {
   it('refuses every request with InvalidRequest, ignores notifications, and exits with status 0 on exit', async () => {

@@ -15,15 +15,14 @@ import {
   IPCMessageReader,
   IPCMessageWriter,
   createProtocolConnection,
-  ResponseError,
   type MessageReader,
   type MessageWriter,
   type ProtocolConnection,
   type PublishDiagnosticsParams,
 } from 'vscode-languageserver-protocol/node';
 import { NO_SOCKET, NO_TRANSPORT, transportOf, TRANSPORT_PROBLEM_STATUS } from '../../server/src/server/transport';
+import { errorCode, INVALID_REQUEST } from './lsp-client';
 
-const INVALID_REQUEST = -32600;
 const WAIT_MS = 15000;
 
 /** What a test started; stopped and removed after each test whatever happened. */
@@ -100,17 +99,6 @@ async function connect(listening: Listening): Promise<{ server: Server; connecti
   await within('initialize', connection.sendRequest('initialize', { processId: process.pid, rootUri: null, capabilities: { workspace: { configuration: true } } }), server);
   await connection.sendNotification('initialized', {});
   return { server, connection, published, hangUp: () => listening.hangUp(server.child, connection) };
-}
-
-/** The error code a request was answered with; null when it was answered without an error. */
-async function errorCode(request: Promise<unknown>): Promise<number | null> {
-  try {
-    await request;
-    return null;
-  } catch (e) {
-    expect(e).toBeInstanceOf(ResponseError);
-    return (e as ResponseError<unknown>).code;
-  }
 }
 
 async function diagnosticsOf(published: PublishDiagnosticsParams[], uri: string, server: Server): Promise<PublishDiagnosticsParams> {
