@@ -77,6 +77,21 @@ describe('a note that needs more memory than a note is given', () => {
     }
   }, 60_000);
 
+  it('does not stop a parallel run when it kills a pool worker (built command)', () => {
+    // Every note to the pool (none is big enough to go alone), each worker with the heap of this
+    // process (112 MB in all): the worker that reads the note dies of memory, the notes it had
+    // been sent are analysed alone, and a new worker takes its place.
+    const dir = folder();
+    for (let i = 0; i < 6; i++) writeFileSync(join(dir, `note-${i}.pneu`), `@ 08:00\nvitals spo2 ${90 + i}\nabg 7.40/40/${60 + i}/24.4\n`);
+    const node = ['--max-old-space-size=64'];
+    const single = cli(['check', '--jobs', '0', '.'], dir, {}, { node });
+    const parallel = cli(['check', '--jobs', '2', '.'], dir, { PNEUMARK_BIG_NOTE_KB: '20480' }, { node });
+    expect(parallel.stderr).toMatch(/^pneumark: huge\.pneu: could not be analysed: it needs more memory than one note is given \(\d+ MB\); split it into smaller notes\n$/);
+    expect(parallel.status).toBe(2);
+    expect(parallel.stdout).toBe(single.stdout);
+    expect(parallel.stdout).toMatch(/^7 notes checked, 1 could not be read: 0 errors, 1 warning, 0 info\./m);
+  }, 60_000);
+
   it('is found from the heap this process is given, with no setting (built command)', () => {
     // With 64 MB of old generation (112 MB of heap in all), notes from 56 KB are analysed alone
     // with a third of the heap: the note used to stop the process with a fatal error.

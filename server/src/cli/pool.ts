@@ -183,9 +183,16 @@ export async function runAll(files: readonly string[], task: Task, local: NoteWo
   /** Milliseconds a worker spends per note, from the batches answered so far (NaN: none yet). */
   let perNote = Number.NaN;
   let next = 0;
-  await Promise.all(Array.from({ length: workers }, () => new Promise<void>((resolve, reject) => {
+  /**
+   * A pool worker, fed batches until the queue is empty. One that dies (of memory: each inherits
+   * this thread's heap limit) has the notes it was sent and had not answered analysed alone, where
+   * the one that killed it gets its problem, and a new worker takes its place; one that dies with
+   * nothing sent (it could not start) fails the run.
+   */
+  const startWorker = (): Promise<void> => new Promise<void>((resolve, reject) => {
     const worker = new Worker(__filename, { workerData: { pneumarkWorker: true, cwd: options.cwd, overrides: options.overrides, task, aloneFrom: alone?.fromBytes ?? null } });
-    let inFlight = 0;
+    /** Batches sent and not answered yet, in the order sent (the worker answers them in that order). */
+    const unanswered: WorkItem[][] = [];
     let closing = false;
     /** Sends the next batch when there is one, else lets the worker go once it has answered all. */
     const feed = (): void => {
@@ -193,15 +200,15 @@ export async function runAll(files: readonly string[], task: Task, local: NoteWo
       if (next < queue.length) {
         const batch: WorkItem[] = queue.slice(next, next + nextBatchSize(perNote, most));
         next += batch.length;
-        inFlight++;
+        unanswered.push(batch);
         worker.postMessage(batch);
-      } else if (inFlight === 0) {
+      } else if (unanswered.length === 0) {
         closing = true;
         void worker.terminate().then(() => resolve());
       }
     };
     worker.on('message', (answer: BatchDone) => {
-      inFlight--;
+      unanswered.shift();
       const count = answer.done.length;
       if (count > 0) perNote = Number.isNaN(perNote) ? answer.millis / count : (perNote + answer.millis / count) / 2;
       for (const d of answer.done) {
@@ -210,13 +217,28 @@ export async function runAll(files: readonly string[], task: Task, local: NoteWo
       }
       mayRead().then(feed, reject);
     });
-    worker.on('error', reject);
+    const died = (error: Error | null): void => {
+      if (closing) return;
+      closing = true;
+      const lost = unanswered.flat();
+      if (lost.length === 0) {
+        reject(error ?? new Error('a worker thread stopped before it was sent a note'));
+        return;
+      }
+      for (const item of lost) sendAlone(item);
+      void worker.terminate();
+      if (next < queue.length) startWorker().then(resolve, reject);
+      else resolve();
+    };
+    worker.on('error', died);
+    worker.on('exit', () => died(null));
     worker.on('online', () => {
       // Two batches in flight: the worker starts the second while the first goes back and the
       // next one comes, so it never waits for a round trip through this thread.
       for (let k = 0; k < IN_FLIGHT; k++) feed();
     });
-  })));
+  });
+  await Promise.all(Array.from({ length: workers }, startWorker));
   await aloneDone;
   return reports;
 }
