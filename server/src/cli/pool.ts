@@ -183,11 +183,14 @@ export async function runAll(files: readonly string[], task: Task, local: NoteWo
   /** Milliseconds a worker spends per note, from the batches answered so far (NaN: none yet). */
   let perNote = Number.NaN;
   let next = 0;
+  /** Notes sent to a worker that died before it started them, for the next batches. */
+  const again: WorkItem[] = [];
+  const more = (): boolean => again.length > 0 || next < queue.length;
   /**
    * A pool worker, fed batches until the queue is empty. One that dies (of memory: each inherits
-   * this thread's heap limit) has the notes it was sent and had not answered analysed alone, where
-   * the one that killed it gets its problem, and a new worker takes its place; one that dies with
-   * nothing sent (it could not start) fails the run.
+   * this thread's heap limit) has the notes of the batch it was working on analysed alone, where
+   * the one that killed it gets its problem, and those of the batch after it sent again; a new
+   * worker takes its place. One that dies with nothing sent (it could not start) fails the run.
    */
   const startWorker = (): Promise<void> => new Promise<void>((resolve, reject) => {
     const worker = new Worker(__filename, { workerData: { pneumarkWorker: true, cwd: options.cwd, overrides: options.overrides, task, aloneFrom: alone?.fromBytes ?? null } });
@@ -197,9 +200,14 @@ export async function runAll(files: readonly string[], task: Task, local: NoteWo
     /** Sends the next batch when there is one, else lets the worker go once it has answered all. */
     const feed = (): void => {
       if (closing) return;
-      if (next < queue.length) {
-        const batch: WorkItem[] = queue.slice(next, next + nextBatchSize(perNote, most));
-        next += batch.length;
+      if (more()) {
+        const size = nextBatchSize(perNote, most);
+        let batch: WorkItem[];
+        if (again.length > 0) batch = again.splice(0, size);
+        else {
+          batch = queue.slice(next, next + size);
+          next += batch.length;
+        }
         unanswered.push(batch);
         worker.postMessage(batch);
       } else if (unanswered.length === 0) {
@@ -220,14 +228,15 @@ export async function runAll(files: readonly string[], task: Task, local: NoteWo
     const died = (error: Error | null): void => {
       if (closing) return;
       closing = true;
-      const lost = unanswered.flat();
-      if (lost.length === 0) {
+      const [working, ...waiting] = unanswered;
+      if (working === undefined) {
         reject(error ?? new Error('a worker thread stopped before it was sent a note'));
         return;
       }
-      for (const item of lost) sendAlone(item);
+      for (const item of working) sendAlone(item);
+      for (const batch of waiting) again.push(...batch);
       void worker.terminate();
-      if (next < queue.length) startWorker().then(resolve, reject);
+      if (more()) startWorker().then(resolve, reject);
       else resolve();
     };
     worker.on('error', died);
