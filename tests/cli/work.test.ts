@@ -9,7 +9,7 @@ import type { Finding } from '../../server/src/core/types';
 import { readNote } from '../../server/src/cli/inputs';
 import { batchSize, handover, nextBatchSize, PARALLEL_FROM, runAll, workerCount } from '../../server/src/cli/pool';
 import { Output } from '../../server/src/cli/output';
-import { CheckJsonWriter, jsonFileEntry, jsonFileEntryOrProblem, TOO_MUCH_JSON, toJsonFinding, writeCheckSarif, writeCheckText, type FileOutcome } from '../../server/src/cli/render-check';
+import { CheckJsonWriter, jsonFileEntry, jsonFileEntryOrProblem, TOO_MANY_FINDINGS, TOO_MUCH_JSON, toJsonFinding, writeCheckSarif, writeCheckText, type FileOutcome } from '../../server/src/cli/render-check';
 import { toSarifLog } from '../../server/src/core/export';
 import { PNEUMARK_VERSION } from '../../server/src/core/version';
 import { paint } from '../../server/src/cli/colour';
@@ -138,6 +138,15 @@ describe('output written a note at a time', () => {
     writer.end();
     const parsed = JSON.parse(text) as { summary: { files: number; unreadable: number } };
     expect(parsed.summary).toMatchObject({ files: 2, unreadable: 1 });
+    // Findings that make too much JSON on their own (a million bare timepoints, a finding on
+    // each): the entry leaves them out too, where the run used to end with a RangeError.
+    const [first] = findings;
+    const heavy = { ...first!, fixes: [tooBig] } as unknown as Finding;
+    for (const timepoints of [[tooBig], undefined]) {
+      const alone = jsonFileEntryOrProblem({ path: 'huge.pneu', findings: [heavy], problem: null, ...(timepoints ? { timepoints } : {}) });
+      expect(alone.problem).toBe(TOO_MANY_FINDINGS);
+      expect(JSON.parse(alone.entry)).toEqual({ path: 'huge.pneu', problem: TOO_MANY_FINDINGS, findings: [] });
+    }
     // Any other failure is not mistaken for size.
     const broken = { toJSON() { throw new TypeError('broken'); } };
     expect(() => jsonFileEntryOrProblem({ path: 'b.pneu', findings: [], problem: null, timepoints: [broken] })).toThrow(TypeError);

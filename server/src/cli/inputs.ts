@@ -511,12 +511,29 @@ function isFile(path: string): boolean {
   }
 }
 
+/** A note's bytes as read, before they are decoded: `bytes` null when they could not be read (`problem` says why). */
+export interface NoteBytes {
+  /** As shown to the user: relative to the working directory, or `<stdin>`. */
+  readonly path: string;
+  readonly bytes: Buffer | null;
+  readonly problem: string | null;
+}
+
 /**
  * Reads a note. Its bytes must be UTF-8 (a byte-order mark is allowed and left out of the text
  * unless `keepBom`): a note in another encoding gets a problem rather than text with replacement
  * characters, which would be checked, exported or formatted as something it does not say.
  */
 export function readNote(path: string, cwd: string, stdin: () => Buffer, options: { readonly keepBom?: boolean } = {}): NoteInput {
+  return noteFromBytes(readNoteBytes(path, cwd, stdin), options);
+}
+
+/**
+ * The bytes of a note (`-`: standard input), or why they cannot be read: missing, a folder, over
+ * MAX_NOTE_BYTES. The CLI reads them first to learn a note's size (a big note is analysed in a
+ * worker thread of its own: see analyse-alone.ts), then decodes them with `noteFromBytes`.
+ */
+export function readNoteBytes(path: string, cwd: string, stdin: () => Buffer): NoteBytes {
   let bytes: Buffer;
   const shown = path === '-' ? STDIN_NAME : path;
   try {
@@ -527,8 +544,8 @@ export function readNote(path: string, cwd: string, stdin: () => Buffer, options
       const fd = openSync(isAbsolute(path) ? path : join(cwd, path), 'r');
       try {
         const stat = fstatSync(fd);
-        if (stat.isDirectory()) return { path: shown, text: null, problem: 'is a folder' };
-        if (stat.size > MAX_NOTE_BYTES) return { path: shown, text: null, problem: `too large to check (${(stat.size / 1048576).toFixed(1)} MB; the limit is ${MAX_NOTE_BYTES / 1048576} MB)` };
+        if (stat.isDirectory()) return { path: shown, bytes: null, problem: 'is a folder' };
+        if (stat.size > MAX_NOTE_BYTES) return { path: shown, bytes: null, problem: `too large to check (${(stat.size / 1048576).toFixed(1)} MB; the limit is ${MAX_NOTE_BYTES / 1048576} MB)` };
         // Anything else (a pipe, a device such as /dev/zero) has no size to go by and may never end.
         bytes = stat.isFile() ? readAll(fd, stat.size) : readUpTo(fd, MAX_NOTE_BYTES + 1);
       } finally {
@@ -536,9 +553,16 @@ export function readNote(path: string, cwd: string, stdin: () => Buffer, options
       }
     }
   } catch (error) {
-    return { path: shown, text: null, problem: readProblem(path === '-' ? null : isAbsolute(path) ? path : join(cwd, path), error) };
+    return { path: shown, bytes: null, problem: readProblem(path === '-' ? null : isAbsolute(path) ? path : join(cwd, path), error) };
   }
-  if (bytes.length > MAX_NOTE_BYTES) return { path: shown, text: null, problem: `too large to check (the limit is ${MAX_NOTE_BYTES / 1048576} MB)` };
+  if (bytes.length > MAX_NOTE_BYTES) return { path: shown, bytes: null, problem: `too large to check (the limit is ${MAX_NOTE_BYTES / 1048576} MB)` };
+  return { path: shown, bytes, problem: null };
+}
+
+/** A note's text from its bytes, or why they are not a note (binary, not UTF-8). */
+export function noteFromBytes(read: NoteBytes, options: { readonly keepBom?: boolean } = {}): NoteInput {
+  const { path: shown, bytes } = read;
+  if (bytes === null) return { path: shown, text: null, problem: read.problem };
   if (looksBinary(bytes)) return { path: shown, text: null, problem: 'looks like a binary file, not a note' };
   const notUtf8 = utf8Problem(bytes);
   if (notUtf8 !== null) return { path: shown, text: null, problem: `${notUtf8}; convert it to UTF-8 to read it` };

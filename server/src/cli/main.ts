@@ -18,7 +18,7 @@ import { COLUMNS_END, COLUMNS_START, renderColumnTable } from '../core/export/do
 import { colourWanted, paint, type Paint } from './colour';
 import { runExport, exportRenderer } from './export-command';
 import { runFmt } from './fmt-command';
-import { listInputs, MAX_NOTE_BYTES, readNote, readUpTo } from './inputs';
+import { listInputs, MAX_NOTE_BYTES, readNote, readUpTo, STDIN_NAME } from './inputs';
 import { gather, type BatchDone, type WorkDone, type WorkItem } from './pool';
 import { CheckJsonWriter, countOutcome, jsonFileEntryOrProblem, writeCheckSarif, writeCheckText, type FileOutcome } from './render-check';
 import type { SeverityCounts } from './render-show';
@@ -179,9 +179,13 @@ function writeText(path: string, shown: string, text: string, option: string): v
   }
 }
 
-/** Worker thread: analyses the batches of notes it is sent and posts each batch's reports back. */
+/**
+ * Worker thread: analyses the batches of notes it is sent and posts each batch's reports back. A
+ * pool worker hands back a note of more than `aloneFrom` bytes unanalysed (a null report), to be
+ * analysed in a worker of its own (analyse-alone.ts), which is this same code with `aloneFrom` null.
+ */
 function workerMain(): void {
-  const data = workerData as { cwd: string; overrides: object; task: Task };
+  const data = workerData as { cwd: string; overrides: object; task: Task; aloneFrom: number | null };
   const worker = new NoteWorker(data.cwd, data.overrides, exportRenderer);
   // JSON output: the worker writes out each note's entry (see jsonFileEntry).
   const withEntry = (r: FileReport): FileReport => {
@@ -190,13 +194,18 @@ function workerMain(): void {
     const { entry, problem } = jsonFileEntryOrProblem(r, data.task.kind === 'check' && data.task.errorsOnly === true);
     return { ...rest, entry, problem };
   };
+  const noStdin = (): Buffer => Buffer.alloc(0);
   parentPort?.on('message', (batch: WorkItem[]) => {
     const started = performance.now();
     const done: WorkDone[] = batch.map((m) => {
       try {
-        return { i: m.i, report: packReport(withEntry(worker.run(m.f, data.task, () => Buffer.alloc(0)))) };
+        // Bytes sent along (standard input, or a big note the main thread has read) stand for the note.
+        const bytes = m.bytes;
+        const read = bytes === undefined ? worker.read(m.f, noStdin) : { path: m.f === '-' ? STDIN_NAME : m.f, bytes: Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength), problem: null };
+        if (data.aloneFrom !== null && read.bytes !== null && read.bytes.length > data.aloneFrom) return { i: m.i, report: null };
+        return { i: m.i, report: packReport(withEntry(worker.analyse(m.f, read, data.task))) };
       } catch (error) {
-        return { i: m.i, report: packReport({ path: m.f, problem: `could not be analysed (${error instanceof Error ? error.message : String(error)})`, findings: [] }) };
+        return { i: m.i, report: packReport({ path: m.f === '-' ? STDIN_NAME : m.f, problem: `could not be analysed (${error instanceof Error ? error.message : String(error)})`, findings: [] }) };
       }
     });
     const answer: BatchDone = { done, millis: performance.now() - started };

@@ -1,12 +1,14 @@
 /**
  * Runs a task over many notes, in parallel when it pays off: worker threads each take the next
  * note, and results land in the slot of their note, so the output order is the input order
- * whatever the parallelism. Standard input is always read in the main thread.
+ * whatever the parallelism. Standard input is always read in the main thread. A big note is
+ * analysed in a worker of its own (analyse-alone.ts), from here and from the pool alike.
  */
 import { availableParallelism } from 'node:os';
 import { Worker } from 'node:worker_threads';
 import type { Settings } from '../core/settings';
 import type { Io } from './args';
+import { aloneLimits, analyseAlone, type AloneLimits } from './analyse-alone';
 import { progressBar } from './progress';
 import { unpackReport, type FileReport, type NoteWorker, type PackedReport, type Task } from './work';
 
@@ -28,10 +30,13 @@ const IN_FLIGHT = 2;
 export interface WorkItem {
   readonly f: string;
   readonly i: number;
+  /** The note's bytes, when the main thread has read them (standard input, a big note sent to a worker of its own). */
+  readonly bytes?: Uint8Array;
 }
 export interface WorkDone {
   readonly i: number;
-  readonly report: PackedReport;
+  /** Null: the note is too big for a pool worker, and goes to a worker of its own. */
+  readonly report: PackedReport | null;
 }
 /** A worker's answer to a batch: the reports, and the time the batch took it. */
 export interface BatchDone {
@@ -84,6 +89,8 @@ export interface PoolOptions {
    * piling up in memory.
    */
   readonly ready?: () => Promise<void>;
+  /** Where big notes are analysed alone, and with how much heap; null: every note is analysed where it is read. */
+  readonly alone?: AloneLimits | null;
 }
 
 /**
@@ -143,65 +150,114 @@ export function handover(total: number, options: Pick<PoolOptions, 'inOrder' | '
 
 export async function runAll(files: readonly string[], task: Task, local: NoteWorker, stdin: () => Buffer, options: PoolOptions): Promise<FileReport[]> {
   const { reports, finish, mayRead } = handover(files.length, options);
+  const alone = canUseWorkers() ? options.alone ?? null : null;
   const parallel = options.workers > 1 && canUseWorkers();
+  const aloneOptions = { cwd: options.cwd, overrides: options.overrides, heapMb: alone?.heapMb ?? 0 };
+  /** A note read and analysed in this thread, or, when it is big, read here and analysed alone. */
+  const here = async (f: string): Promise<FileReport> => {
+    const read = local.read(f, stdin);
+    if (alone !== null && read.bytes !== null && read.bytes.length > alone.fromBytes) return analyseAlone(f, read.bytes, task, aloneOptions);
+    return local.analyse(f, read, task);
+  };
 
   if (!parallel) {
     for (let i = 0; i < files.length; i++) {
       await mayRead();
-      finish(i, local.run(files[i]!, task, stdin));
+      finish(i, await here(files[i]!));
       if (i % 64 === 63) await new Promise((r) => setImmediate(r)); // let a progress bar draw
     }
     return reports;
   }
-  const queue = files.map((f, i) => ({ f, i })).filter(({ f, i }) => {
-    if (f !== '-') return true;
-    finish(i, local.run(f, task, stdin));
-    return false;
-  });
+  const queue: WorkItem[] = [];
+  for (let i = 0; i < files.length; i++) {
+    if (files[i] === '-') finish(i, await here('-'));
+    else queue.push({ f: files[i]!, i });
+  }
+  /** Big notes a pool worker handed back, analysed alone one at a time (each may take a third of the heap). */
+  let aloneDone: Promise<void> = Promise.resolve();
+  const sendAlone = (item: WorkItem): void => {
+    aloneDone = aloneDone.then(async () => finish(item.i, await analyseAlone(item.f, null, task, aloneOptions)));
+  };
   const workers = Math.min(options.workers, queue.length);
   const most = batchSize(queue.length, workers);
   /** Milliseconds a worker spends per note, from the batches answered so far (NaN: none yet). */
   let perNote = Number.NaN;
   let next = 0;
-  await Promise.all(Array.from({ length: workers }, () => new Promise<void>((resolve, reject) => {
-    const worker = new Worker(__filename, { workerData: { pneumarkWorker: true, cwd: options.cwd, overrides: options.overrides, task } });
-    let inFlight = 0;
+  /** Notes sent to a worker that died before it started them, for the next batches. */
+  const again: WorkItem[] = [];
+  const more = (): boolean => again.length > 0 || next < queue.length;
+  /**
+   * A pool worker, fed batches until the queue is empty. One that dies (of memory: each inherits
+   * this thread's heap limit) has the notes of the batch it was working on analysed alone, where
+   * the one that killed it gets its problem, and those of the batch after it sent again; a new
+   * worker takes its place. One that dies with nothing sent (it could not start) fails the run.
+   */
+  const startWorker = (): Promise<void> => new Promise<void>((resolve, reject) => {
+    const worker = new Worker(__filename, { workerData: { pneumarkWorker: true, cwd: options.cwd, overrides: options.overrides, task, aloneFrom: alone?.fromBytes ?? null } });
+    /** Batches sent and not answered yet, in the order sent (the worker answers them in that order). */
+    const unanswered: WorkItem[][] = [];
     let closing = false;
     /** Sends the next batch when there is one, else lets the worker go once it has answered all. */
     const feed = (): void => {
       if (closing) return;
-      if (next < queue.length) {
-        const batch: WorkItem[] = queue.slice(next, next + nextBatchSize(perNote, most));
-        next += batch.length;
-        inFlight++;
+      if (more()) {
+        const size = nextBatchSize(perNote, most);
+        let batch: WorkItem[];
+        if (again.length > 0) batch = again.splice(0, size);
+        else {
+          batch = queue.slice(next, next + size);
+          next += batch.length;
+        }
+        unanswered.push(batch);
         worker.postMessage(batch);
-      } else if (inFlight === 0) {
+      } else if (unanswered.length === 0) {
         closing = true;
         void worker.terminate().then(() => resolve());
       }
     };
     worker.on('message', (answer: BatchDone) => {
-      inFlight--;
+      unanswered.shift();
       const count = answer.done.length;
       if (count > 0) perNote = Number.isNaN(perNote) ? answer.millis / count : (perNote + answer.millis / count) / 2;
-      for (const d of answer.done) finish(d.i, unpackReport(d.report));
+      for (const d of answer.done) {
+        if (d.report !== null) finish(d.i, unpackReport(d.report));
+        else sendAlone({ f: files[d.i]!, i: d.i });
+      }
       mayRead().then(feed, reject);
     });
-    worker.on('error', reject);
+    const died = (error: Error | null): void => {
+      if (closing) return;
+      closing = true;
+      const [working, ...waiting] = unanswered;
+      if (working === undefined) {
+        reject(error ?? new Error('a worker thread stopped before it was sent a note'));
+        return;
+      }
+      for (const item of working) sendAlone(item);
+      for (const batch of waiting) again.push(...batch);
+      void worker.terminate();
+      if (more()) startWorker().then(resolve, reject);
+      else resolve();
+    };
+    worker.on('error', died);
+    worker.on('exit', () => died(null));
     worker.on('online', () => {
       // Two batches in flight: the worker starts the second while the first goes back and the
       // next one comes, so it never waits for a round trip through this thread.
       for (let k = 0; k < IN_FLIGHT; k++) feed();
     });
-  })));
+  });
+  await Promise.all(Array.from({ length: workers }, startWorker));
+  await aloneDone;
   return reports;
 }
 
 /** Reads notes for a command with a progress bar, in parallel when there are many. */
 export async function gather(files: readonly string[], task: Task, io: Io, worker: NoteWorker, showProgress: boolean, label: string, jobs?: number, streaming?: Pick<PoolOptions, 'inOrder' | 'ready'>): Promise<FileReport[]> {
+  const alone = aloneLimits(io.env);
   const bar = progressBar(io.stderr, files.length, label, showProgress);
   try {
-    return await runAll(files, task, worker, io.stdin, { cwd: io.cwd, overrides: {}, workers: workerCount(files.length, io.env, jobs), onDone: (d, t) => bar.update(d, t), ...streaming });
+    return await runAll(files, task, worker, io.stdin, { cwd: io.cwd, overrides: {}, workers: workerCount(files.length, io.env, jobs), onDone: (d, t) => bar.update(d, t), alone, ...streaming });
   } finally {
     bar.stop();
   }

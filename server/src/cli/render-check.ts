@@ -178,18 +178,29 @@ export function jsonFileEntry(o: FileOutcome, errorsOnly = false): string {
 /** Why a note's JSON entry leaves out its timepoints, when they make more JSON than one string can hold. */
 export const TOO_MUCH_JSON = 'its timepoints make more JSON than one string can hold; check it with --format text or sarif, or export it with --format jsonl or csv';
 
+/** Why a note's JSON entry leaves out its findings (and timepoints), when they make more JSON than one string can hold. */
+export const TOO_MANY_FINDINGS = 'its findings make more JSON than one string can hold; check it with --format text or sarif';
+
 /**
  * The note's entry, or, when its timepoints make more JSON than one string can hold (hundreds of
  * megabytes: a note of tens of thousands of timepoints), its entry without them and with a problem
- * that says so, so the run goes on and ends with exit code 2.
+ * that says so, so the run goes on and ends with exit code 2; when its findings alone make too
+ * much (a note of a million bare timepoints has a finding on each), its entry without either.
  */
 export function jsonFileEntryOrProblem(o: FileOutcome, errorsOnly = false): { readonly entry: string; readonly problem: string | null } {
   try {
     return { entry: jsonFileEntry(o, errorsOnly), problem: o.problem };
   } catch (error) {
     if (!(error instanceof RangeError)) throw error;
-    return { entry: jsonFileEntry({ path: o.path, findings: o.findings, problem: TOO_MUCH_JSON }, errorsOnly), problem: TOO_MUCH_JSON };
   }
+  if (o.timepoints) {
+    try {
+      return { entry: jsonFileEntry({ path: o.path, findings: o.findings, problem: TOO_MUCH_JSON }, errorsOnly), problem: TOO_MUCH_JSON };
+    } catch (error) {
+      if (!(error instanceof RangeError)) throw error;
+    }
+  }
+  return { entry: jsonFileEntry({ path: o.path, findings: [], problem: TOO_MANY_FINDINGS }, errorsOnly), problem: TOO_MANY_FINDINGS };
 }
 
 /** A value as `JSON.stringify(…, null, 2)` writes it nested at `indent` (line breaks only come from the layout). */

@@ -9,7 +9,7 @@ import type { Settings } from '../core/settings';
 import type { Finding, Severity } from '../core/types';
 import { NONE } from '../core/util/lists';
 import { ProjectConfigs } from '../node/project-config';
-import { readNote, type NoteInput } from './inputs';
+import { noteFromBytes, readNoteBytes, type NoteBytes, type NoteInput } from './inputs';
 import { countSeverities, type SeverityCounts } from './render-show';
 import { timepointsJson } from './timepoints-json';
 
@@ -69,7 +69,17 @@ export class NoteWorker {
   }
 
   run(path: string, task: Task, stdin: () => Buffer): FileReport {
-    const note: NoteInput = readNote(path, this.cwd, stdin);
+    return this.analyse(path, this.read(path, stdin), task);
+  }
+
+  /** The note's bytes (or why they cannot be read), so a big note can be sent elsewhere before it is analysed. */
+  read(path: string, stdin: () => Buffer): NoteBytes {
+    return readNoteBytes(path, this.cwd, stdin);
+  }
+
+  /** What `task` needs of the note at `path`, from its bytes as `read` gave them. */
+  analyse(path: string, read: NoteBytes, task: Task): FileReport {
+    const note: NoteInput = noteFromBytes(read);
     if (note.text === null) return { path: note.path, problem: note.problem, findings: [] };
     const result = checkNote(note.text, this.settingsFor(path));
     if (task.kind === 'check') {
