@@ -121,6 +121,18 @@ describe('pneumark show', async () => {
     expect(broken.out()).toMatch(/vitals {3}SpO2 104 % \(not used\)\n {6}✖ error PN306/);
   });
 
+  it('refuses a note over the size check analyses alone, in one line, with exit status 2 (a hostile one would exhaust the heap)', async () => {
+    const text = '@\n'.repeat(1024);
+    const out = io(text, { NO_COLOR: '1', PNEUMARK_BIG_NOTE_KB: '1' });
+    expect(await run(['show', '-'], out)).toBe(2);
+    expect(out.out()).toBe('');
+    expect(out.err()).toBe('pneumark: <stdin>: too large to show (2 KB; show takes notes up to 1 KB): check or export it instead\n');
+    // The same note under the limit is shown.
+    const shown = io(text, { NO_COLOR: '1', PNEUMARK_BIG_NOTE_KB: '2' });
+    expect(await run(['show', '-'], shown)).toBe(1);
+    expect(shown.out()).toContain('1024 timepoints');
+  });
+
   it('counts information findings in its first line as check does, not as readings (which it prints in full below)', async () => {
     const out = io();
     await run(['show', 'samples/home-oxygen-exacerbation.pneu'], out);

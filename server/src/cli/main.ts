@@ -19,6 +19,7 @@ import { colourWanted, paint, type Paint } from './colour';
 import { runExport, exportRenderer } from './export-command';
 import { runFmt } from './fmt-command';
 import { listInputs, MAX_NOTE_BYTES, readNote, readUpTo, STDIN_NAME } from './inputs';
+import { aloneLimits } from './analyse-alone';
 import { gather, type BatchDone, type WorkDone, type WorkItem } from './pool';
 import { CheckJsonWriter, countOutcome, jsonFileEntryOrProblem, writeCheckSarif, writeCheckText, type FileOutcome } from './render-check';
 import type { SeverityCounts } from './render-show';
@@ -68,11 +69,24 @@ function show(args: readonly string[], io: Io): number {
     io.stderr.write(`pneumark: ${visible(note.path)}: ${visible(note.problem ?? '')}\n`);
     return EXIT.usage;
   }
+  // show analyses and renders in this thread: a note that check would analyse in a worker of its
+  // own (analyse-alone.ts) is too big to show safely (a hostile one would exhaust the heap) or usefully.
+  const most = aloneLimits(io.env).fromBytes;
+  const bytes = Buffer.byteLength(note.text, 'utf8');
+  if (bytes > most) {
+    io.stderr.write(`pneumark: ${visible(note.path)}: too large to show (${sizeText(bytes)}; show takes notes up to ${sizeText(most)}): check or export it instead\n`);
+    return EXIT.usage;
+  }
   const worker = new NoteWorker(io.cwd, {});
   const result = checkNote(note.text, worker.settingsFor(positionals[0]!));
   io.stdout.write(`${renderShow(note.path, result, paint(colourWanted(io.stdout, io.env)))}\n\n${CAUTION}\n`);
   if (reportConfigProblems(new ConfigReport(io.cwd).note(positionals[0]!), io)) return EXIT.usage;
   return result.findings.some((f) => f.severity === 'error') ? EXIT.findings : EXIT.ok;
+}
+
+/** A size as people read it: MB to one decimal from 1 MB, else whole KB. */
+function sizeText(bytes: number): string {
+  return bytes >= 1048576 ? `${(bytes / 1048576).toFixed(1)} MB` : `${Math.ceil(bytes / 1024)} KB`;
 }
 
 const checkOptions = z.object({
