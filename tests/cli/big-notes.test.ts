@@ -89,7 +89,7 @@ describe('a note that needs more memory than a note is given', () => {
     expect(parallel.stderr).toMatch(/^pneumark: huge\.pneu: could not be analysed: it needs more memory than one note is given \(\d+ MB\); split it into smaller notes\n$/);
     expect(parallel.status).toBe(2);
     expect(parallel.stdout).toBe(single.stdout);
-    expect(parallel.stdout).toMatch(/^7 notes checked, 1 could not be read: 0 errors, 1 warning, 0 info\./m);
+    expect(parallel.stdout).toMatch(/^7 notes checked, 1 could not be checked: 0 errors, 1 warning, 0 info\./m);
   }, 60_000);
 
   it('is found from the heap this process is given, with no setting (built command)', () => {

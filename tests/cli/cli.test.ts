@@ -90,7 +90,7 @@ describe('pneumark check', async () => {
     expect(out.err()).toMatch(/missing.pneu: no such file or folder/);
     expect(out.err()).toMatch(/huge.pneu: too large to check \(21\.0 MB; the limit is 20 MB\)/);
     expect(out.err().trim().split('\n')).toHaveLength(3);
-    expect(out.out()).toMatch(/1 note checked, 3 could not be read/);
+    expect(out.out()).toMatch(/1 note checked, 3 could not be checked/);
   });
 
   it('reads a note from standard input with -', async () => {

@@ -465,7 +465,7 @@ describe('what a folder walk cannot read is a problem, never skipped in silence'
       'pneumark: c2.pneu: a loop of symbolic links',
       '',
     ].join('\n'));
-    expect(folder.out()).toMatch(/1 note checked, 3 could not be read/);
+    expect(folder.out()).toMatch(/1 note checked, 3 could not be checked/);
     // A pattern still decides which links are notes.
     const pattern = io(dir);
     expect(await run(['check', '[ab].pneu'], pattern)).toBe(2);

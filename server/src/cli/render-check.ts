@@ -93,7 +93,7 @@ export async function writeCheckText(outcomes: readonly FileOutcome[], p: Paint,
   }
   const checked = outcomes.filter((o) => !o.problem).length;
   const unreadable = outcomes.length - checked;
-  pieces.end(`${checked} note${checked === 1 ? '' : 's'} checked${unreadable ? `, ${unreadable} could not be read` : ''}: ${total.error} error${total.error === 1 ? '' : 's'}, ${total.warning} warning${total.warning === 1 ? '' : 's'}, ${total.information} info.\n`);
+  pieces.end(`${checked} note${checked === 1 ? '' : 's'} checked${unreadable ? `, ${unreadable} could not be checked` : ''}: ${total.error} error${total.error === 1 ? '' : 's'}, ${total.warning} warning${total.warning === 1 ? '' : 's'}, ${total.information} info.\n`);
 }
 
 export interface JsonFinding {
