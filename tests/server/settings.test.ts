@@ -32,6 +32,9 @@ describe('readClientSettings', () => {
   it('names each problem of a setting once, and not the largest whole number JavaScript holds', () => {
     expect(readClientSettings({ debounceMs: 1e308 }).problem).toBe('pneumark.debounceMs: must be at most 5000');
     expect(readClientSettings({ maxNoteSizeKb: -1e300 }).problem).toBe('pneumark.maxNoteSizeKb: must be at least 16');
+    // A note made to exhaust memory takes the server to about 3.3 GB at 4 MB: no more is allowed.
+    expect(readClientSettings({ maxNoteSizeKb: 65536 }).problem).toBe('pneumark.maxNoteSizeKb: must be at most 4096');
+    expect(readClientSettings({ maxNoteSizeKb: 4096 })).toMatchObject({ settings: { maxNoteSizeKb: 4096 }, problem: null });
     expect(readClientSettings({ disabledChecks: [1, 2, 3] }).problem).toBe('pneumark.disabledChecks: must be a string in quotes');
   });
 

@@ -10,6 +10,9 @@ import { settingProblem, unknownCheckNames, unknownCheckSentence, type ParsedCon
 import { HINT_CATEGORIES, type HintCategory } from '../core/service/types';
 import { settingsSchema, withDefaults, type Settings } from '../core/settings';
 
+/** The most `pneumark.maxNoteSizeKb` may be (see its schema). */
+export const MAX_NOTE_SIZE_KB = 4096;
+
 export const clientSettingsSchema = z
   .object({
     analysis: settingsSchema.partial().default({}),
@@ -17,7 +20,9 @@ export const clientSettingsSchema = z
     /** Milliseconds to wait after the last keystroke before analysing. */
     debounceMs: z.number().int().min(0).max(5000).default(60),
     /** Notes larger than this (KiB) are not analysed; the editor stays responsive. */
-    maxNoteSizeKb: z.number().int().min(16).max(65536).default(2048),
+    // At most 4 MB: a hostile note of that size (bare `@` lines, each a timepoint with a finding)
+    // takes the server to about 3.3 GB; much more would exhaust its heap.
+    maxNoteSizeKb: z.number().int().min(16).max(MAX_NOTE_SIZE_KB).default(2048),
   })
   .passthrough();
 
