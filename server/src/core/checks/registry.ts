@@ -17,6 +17,7 @@ import { peepAbovePlateau, plateauAbovePeak, systolicBelowDiastolic } from './pr
 import { birthDate, calendarDate, emailAddress, phoneNumber, possibleName, postalCode, recordNumber } from './privacy';
 import { timeGoesBack } from './time-order';
 import { rateBelowSet, setRateZero } from './rate-order';
+import { amplitudeOutsideHfov } from './oscillation';
 import { flowOnRoomAirCheck } from './room-air-flow';
 import { therapyOverlap } from './therapy-overlap';
 import { unusualBlank } from './unusual-blank';
@@ -48,6 +49,7 @@ export const CHECKS: readonly CheckDef[] = validateCheckList([
   flowOnRoomAirCheck,
   therapyOverlap,
   setRateZero,
+  amplitudeOutsideHfov,
   pao2AboveAlveolar,
   gasInconsistent,
   tidalVolumeHigh,
