@@ -27,6 +27,8 @@ import {
   StreamMessageReader,
   StreamMessageWriter,
   type Connection,
+  type MessageReader,
+  type MessageWriter,
 } from 'vscode-languageserver/node';
 import { connectToEditor } from './local-socket';
 import { startServer } from './server';
@@ -34,26 +36,30 @@ import { ShutdownGate } from './shutdown-gate';
 import { isTransportProblem, transportOf, TRANSPORT_PROBLEM_STATUS, type Transport } from './transport';
 import { asciiJsonEncoder } from './wire';
 
-function stdioConnection(): Connection {
-  // Requests after a shutdown request are refused there, for every handler (see shutdown-gate.ts).
+/**
+ * A connection over `reader` and `writer` behind the shutdown gate: requests after a shutdown
+ * request are refused there, for every handler (see shutdown-gate.ts). `end` ends the server as
+ * a transport's close does: status 0 after a shutdown request, 1 without.
+ */
+function gatedConnection(reader: MessageReader, writer: MessageWriter): { readonly connection: Connection; readonly end: () => never } {
   const gate = new ShutdownGate();
-  const connection = createConnection(
-    ProposedFeatures.all,
-    gate.readerFor(new StreamMessageReader(process.stdin)),
-    gate.writerFor(new StreamMessageWriter(process.stdout, { contentTypeEncoder: asciiJsonEncoder })),
-  );
+  const connection = createConnection(ProposedFeatures.all, gate.readerFor(reader), gate.writerFor(writer));
+  let shutdown = false;
+  connection.onShutdown(() => { shutdown = true; });
+  return { connection, end: () => process.exit(shutdown ? 0 : 1) };
+}
+
+function stdioConnection(): Connection {
+  const { connection, end } = gatedConnection(new StreamMessageReader(process.stdin), new StreamMessageWriter(process.stdout, { contentTypeEncoder: asciiJsonEncoder }));
   // What the library does for `--stdio`, which it skips when given a reader and a writer: stray
   // console output goes to the client's log instead of corrupting the protocol stream, and the
   // server ends when the client closes its end (after a shutdown request, with status 0).
-  let shutdown = false;
-  connection.onShutdown(() => { shutdown = true; });
   const toLog = (send: (message: string) => void) => (...args: unknown[]) => send(format(...args));
   console.log = toLog((m) => connection.console.log(m));
   console.info = toLog((m) => connection.console.info(m));
   console.warn = toLog((m) => connection.console.warn(m));
   console.error = toLog((m) => connection.console.error(m));
   console.debug = toLog((m) => connection.console.log(m));
-  const end = () => process.exit(shutdown ? 0 : 1);
   process.stdin.on('end', end);
   process.stdin.on('close', end);
   return connection;
@@ -65,11 +71,8 @@ function stdioConnection(): Connection {
  * request, 1 without), rather than waiting on a channel no message will come through.
  */
 function ipcConnection(): Connection {
-  const gate = new ShutdownGate();
-  const connection = createConnection(ProposedFeatures.all, gate.readerFor(new IPCMessageReader(process)), gate.writerFor(new IPCMessageWriter(process)));
-  let shutdown = false;
-  connection.onShutdown(() => { shutdown = true; });
-  process.on('disconnect', () => process.exit(shutdown ? 0 : 1));
+  const { connection, end } = gatedConnection(new IPCMessageReader(process), new IPCMessageWriter(process));
+  process.on('disconnect', end);
   return connection;
 }
 
@@ -82,15 +85,7 @@ function ipcConnection(): Connection {
  */
 function pipeConnection(path: string): Connection {
   const socket = connectToEditor(path);
-  const gate = new ShutdownGate();
-  const connection = createConnection(
-    ProposedFeatures.all,
-    gate.readerFor(new SocketMessageReader(socket)),
-    gate.writerFor(new SocketMessageWriter(socket, { contentTypeEncoder: asciiJsonEncoder })),
-  );
-  let shutdown = false;
-  connection.onShutdown(() => { shutdown = true; });
-  const end = () => process.exit(shutdown ? 0 : 1);
+  const { connection, end } = gatedConnection(new SocketMessageReader(socket), new SocketMessageWriter(socket, { contentTypeEncoder: asciiJsonEncoder }));
   socket.on('error', (e: Error) => {
     process.stderr.write(`pneumark language server: connection to ${path}: ${e.message}\n`);
     end();

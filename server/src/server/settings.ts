@@ -30,6 +30,11 @@ export type ClientSettings = z.infer<typeof clientSettingsSchema>;
 
 export const DEFAULT_CLIENT_SETTINGS: ClientSettings = clientSettingsSchema.parse({});
 
+/** A whole number's bound in JavaScript, which zod's `int()` checks beside the setting's own bounds. */
+function beyondSafeInteger(issue: z.core.$ZodIssue): boolean {
+  return (issue.code === 'too_big' && Number(issue.maximum) === Number.MAX_SAFE_INTEGER) || (issue.code === 'too_small' && Number(issue.minimum) === Number.MIN_SAFE_INTEGER);
+}
+
 /**
  * Reads the `pneumark` configuration section. The client contributes flat keys
  * (`pneumark.gasUnit`, `pneumark.hints.mechanics`, ...): they arrive as a nested object. Each key
@@ -40,11 +45,6 @@ export const DEFAULT_CLIENT_SETTINGS: ClientSettings = clientSettingsSchema.pars
  * An empty list stands for an empty object (the section or `hints`): Lua has one kind of table,
  * and Neovim sends an empty one as `[]`.
  */
-/** A whole number's bound in JavaScript, which zod's `int()` checks beside the setting's own bounds. */
-function beyondSafeInteger(issue: z.core.$ZodIssue): boolean {
-  return (issue.code === 'too_big' && Number(issue.maximum) === Number.MAX_SAFE_INTEGER) || (issue.code === 'too_small' && Number(issue.minimum) === Number.MIN_SAFE_INTEGER);
-}
-
 export function readClientSettings(raw: unknown): { settings: ClientSettings; problem: string | null; unknownChecks: string | null } {
   const source = isRecord(raw) ? raw : {};
   const problems: string[] = [];

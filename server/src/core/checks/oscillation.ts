@@ -3,8 +3,14 @@
  * setting only an oscillator has, so one written where the mode in force is a conventional one
  * says that the mode or the key is mistaken (a mode line not updated, `amp` meant as something else).
  */
+import { OSCILLATION_MODE } from '../physiology/mechanics';
 import { toRange } from '../syntax/tree';
-import { defineCheck } from './check';
+import { defineCheck, type TimepointContext } from './check';
+
+/** Whether the mode in force at a timepoint is high-frequency oscillation. */
+export function inHfov(at: TimepointContext): boolean {
+  return at.timepoint.values.get('mode')?.stated.word === OSCILLATION_MODE;
+}
 
 export const amplitudeOutsideHfov = defineCheck({
   code: 'PN313',
@@ -23,7 +29,7 @@ export const amplitudeOutsideHfov = defineCheck({
     // Asked without building the values: nearly every timepoint states no amplitude.
     if (values.originOf('amplitude') !== 'here') return;
     const mode = values.get('mode')?.stated.word ?? null;
-    if (mode === null || mode === 'HFOV') return;
+    if (mode === null || mode === OSCILLATION_MODE) return;
     const amplitude = values.get('amplitude');
     if (!amplitude) return;
     // As written (`40 mbar`), or in cmH2O where no unit is.

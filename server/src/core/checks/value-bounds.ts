@@ -13,6 +13,7 @@ import { toRange } from '../syntax/tree';
 import { formatAgainst, formatNumber } from '../util/format';
 import { derivedValueOf } from '../derive/registry';
 import { defineCheck, type CheckContext, type CheckDef, type TimepointContext } from './check';
+import { inHfov } from './oscillation';
 import type { Fix } from '../types';
 
 const OWN_CHECKS = new Set(['fio2']);
@@ -61,10 +62,6 @@ export const HFOV_USUAL_RATE_PER_MIN: Bounds = { min: 180, max: 900 };
 const HZ = unitById('Hz')!;
 const PER_MIN = unitById('/min')!;
 
-/** Whether the mode in force at a timepoint is high-frequency oscillation. */
-export function inHfov(at: TimepointContext): boolean {
-  return at.timepoint.values.get('mode')?.stated.word === 'HFOV';
-}
 
 /**
  * For an unusual set rate: in HFOV, a number written bare or in /min that is a usual frequency

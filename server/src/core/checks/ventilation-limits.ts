@@ -4,7 +4,7 @@ import { toRange } from '../syntax/tree';
 import { formatAgainst } from '../util/format';
 import { derivedValueOf } from '../derive/registry';
 import { defineCheck, type TimepointContext } from './check';
-import { inHfov } from './value-bounds';
+import { inHfov } from './oscillation';
 
 /** The limits live with the formulas, so the check and the values shown beside it read the same numbers. */
 const VT_PER_KG_LIMIT = LUNG_PROTECTIVE_VT_MAX_ML_PER_KG;

@@ -11,7 +11,7 @@ import { formatNumber, wordList } from '../util/format';
 import { describeOrigin, kpaResolutionMmhg } from '../present';
 import type { DerivedCategory, DerivedValue, InputOrigin, MissingValue, NotApplicable, Term } from './model';
 import { NONE } from '../util/lists';
-import { MODES_WITH_SET_BREATHS } from '../physiology/mechanics';
+import { MODES_WITH_SET_BREATHS, OSCILLATION_MODE } from '../physiology/mechanics';
 import { keptFor, SmallStore, type Kept } from '../util/small-store';
 
 export type { Term } from './model';
@@ -323,7 +323,7 @@ export class DeriveContext {
    * oscillator's frequency is not; else null.
    */
   oscillation(): Outcome | null {
-    return this.word('mode')?.word === 'HFOV' ? IN_HFOV : null;
+    return this.word('mode')?.word === OSCILLATION_MODE ? IN_HFOV : null;
   }
 
   /**
@@ -332,7 +332,7 @@ export class DeriveContext {
    * compliance), which an oscillator does not deliver; else null.
    */
   oscillationBreath(): Outcome | null {
-    return this.word('mode')?.word === 'HFOV' ? NO_BREATH_IN_HFOV : null;
+    return this.word('mode')?.word === OSCILLATION_MODE ? NO_BREATH_IN_HFOV : null;
   }
 
   /** PEEP in force: the ventilator's, else EPAP (NIV), else the CPAP level. */

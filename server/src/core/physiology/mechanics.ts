@@ -42,6 +42,13 @@ export type Sex = 'male' | 'female';
  */
 export const MODES_WITH_SET_BREATHS: ReadonlySet<string> = new Set(['VC', 'PC', 'PRVC', 'SIMV']);
 
+/**
+ * The ventilator mode (its canonical word) of high-frequency oscillation: its rate is an
+ * oscillation frequency and it gives no conventional breath, so what is worked out from breaths
+ * (VT × rate, plateau or peak − PEEP) and the limits of breaths do not apply (common practice, no source).
+ */
+export const OSCILLATION_MODE = 'HFOV';
+
 /** Plateau pressure limit of the ARDS Network protocol (cmH2O). Source: `ardsnet-2000-plateau`. */
 export const PLATEAU_LIMIT_CMH2O = 30;
 
