@@ -126,6 +126,16 @@ describe('values in force and where they came from', () => {
     expect(value(later, 'fio2')).toBe(0.5);
   });
 
+  it('keeps only FiO2 across a change to or from HFOV: an oscillator sets no PEEP (common practice, no source)', () => {
+    const t3 = timeline('@ 08:00\nvent mode VC, vt 450, rate 20, peep 8, fio2 0.5\n@ 09:00\nvent mode hfov, rate 5 Hz, mpaw 26, amp 60\n@ 10:00\nvent mode PC, rate 16\n@ 11:00\nvent mode HFOV, mpaw 24, peep 6, fio2 0.7\n@ 12:00\nvent mode PS, ps 10');
+    const [, hfov, pc, hfovAgain, ps] = t3.timepoints;
+    expect([value(hfov, 'peep'), value(hfov, 'vt'), value(hfov, 'fio2'), value(hfov, 'amplitude')]).toEqual([undefined, undefined, 0.5, 60]);
+    expect([value(pc, 'peep'), value(pc, 'amplitude'), value(pc, 'mean_airway_pressure'), value(pc, 'vent_rate'), value(pc, 'fio2')]).toEqual([undefined, undefined, undefined, 16, 0.5]);
+    // A PEEP written under HFOV is not the PEEP of the mode that follows.
+    expect(value(hfovAgain, 'peep')).toBe(6);
+    expect([value(ps, 'peep'), value(ps, 'fio2')]).toEqual([undefined, 0.7]);
+  });
+
   it('reads a mode restated in another case as the same mode, keeping its settings', () => {
     const t2 = timeline('@ 08:00\nvent mode ASV, vt 450, rate 20, peep 8\n@ 09:00\nvent mode asv, peep 10\n@ 10:00\nvent mode vc');
     const [, later, vc] = t2.timepoints;

@@ -84,6 +84,18 @@ describe('oxygenation, ventilation and respiratory failure', () => {
     expect(readings('@ 08:00\noxygen cpap 8, fio2 0.5\nabg 7.38/42/90/24')['oxygenation-band']).toMatch(/with CPAP 8 cmH2O: consistent with the 100–200/);
   });
 
+  it('names no Berlin band under HFOV, where an oscillator sets a mean airway pressure and no PEEP (common practice, no source)', () => {
+    // Stated under HFOV, or carried from the conventional mode before it: neither is a PEEP in force.
+    const stated = readings('@ 08:00\nvent mode HFOV, rate 5 Hz, mpaw 28, peep 10, fio2 0.8\nabg 7.30/50/70/24');
+    expect(stated['oxygenation-band']).toBeUndefined();
+    expect(stated.oxygenation).toMatch(/^PaO2 70 mmHg on FiO2 0\.80 \(P\/F 88 mmHg\): consistent with impaired oxygenation supported by oxygen\.$/);
+    const switched = readings('@ 08:00\nvent mode VC, vt 400, rate 18, peep 10, fio2 0.6\nabg 7.30/50/80/24\n@ 10:00\nvent mode HFOV, rate 5 Hz, mpaw 28, fio2 0.8\nabg 7.28/55/70/25');
+    expect(switched['oxygenation-band']).toBeUndefined();
+    // Back on a conventional mode with PEEP, the band is named again.
+    const back = readings('@ 08:00\nvent mode HFOV, rate 5 Hz, mpaw 28, fio2 0.8\n@ 10:00\nvent mode PC, peep 12, fio2 0.6\nabg 7.38/42/90/24');
+    expect(back['oxygenation-band']).toMatch(/^P\/F 150 mmHg with PEEP 12 cmH2O: consistent with the 100–200 mmHg oxygenation band/);
+  });
+
   it('puts a P/F of exactly 200 in the 100–200 band although 114 / 0.57 is 200.00000000000003 in floating point (Berlin: 100 < P/F ≤ 200; JAMA 2012, from memory)', () => {
     const r = readings('@ 08:00\nvent peep 8, fio2 0.57\nabg 7.38/42/114/24');
     expect(r['oxygenation-band']).toMatch(/^P\/F 200 mmHg with PEEP 8 cmH2O: consistent with the 100–200 mmHg oxygenation band/);

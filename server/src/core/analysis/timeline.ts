@@ -6,7 +6,8 @@
  * Carry rules: patient and place values carry until restated (a `place` line replaces the
  * whole place); an `oxygen` line replaces the previous oxygen line and ends ventilation;
  * a `vent` line ends oxygen-line therapy and updates the ventilator settings it restates,
- * keeping the rest (a change of mode keeps only PEEP and FiO2); measurements (vitals, gases,
+ * keeping the rest (a change of mode keeps only PEEP and FiO2, a change to or from HFOV only
+ * FiO2); measurements (vitals, gases,
  * labs) and device readings never carry.
  *
  * Incremental: the note is processed block by block (the lines before the first `@`, then one
@@ -34,6 +35,7 @@ import { sectionById, type SectionId } from '../fields/sections';
 import type { Settings } from '../settings';
 import type { ItemNode, LineNode, NoteTree, SectionLine, Span, TimepointLine } from '../syntax/tree';
 import { MAX_DAY } from '../syntax/parser';
+import { OSCILLATION_MODE } from '../physiology/mechanics';
 import { barometricFromAltitude } from './ambient';
 import { moveLineNames, shiftedLine, type InputValue, type LineShift, type Origin, type StatedValue, type Timepoint, type TimepointTime, type ValuesInForce } from './model';
 import type { ReadIssue } from './read-issues';
@@ -654,12 +656,29 @@ function apply(section: SectionId, stated: readonly (StatedValue | undefined)[],
       const mode = firstOf(stated, from, to, 'mode');
       const before = state.vent.get('mode')?.stated.word;
       let base = state.vent;
-      if (mode?.word && before && mode.word.toLowerCase() !== before.toLowerCase()) base = new Map([...base].filter(([id]) => id === 'peep' || id === 'fio2'));
+      if (mode?.word && before && mode.word.toLowerCase() !== before.toLowerCase()) {
+        const kept = isOscillation(mode.word) || isOscillation(before) ? KEPT_ACROSS_OSCILLATION : KEPT_ACROSS_MODES;
+        base = new Map([...base].filter(([id]) => kept.includes(id)));
+      }
       state.vent = hold(base, stated, from, to, tp, label);
       break;
     }
     default: break;
   }
+}
+
+/** The settings a change of mode keeps: PEEP and FiO2 (our convention, common practice, no source). */
+const KEPT_ACROSS_MODES: readonly string[] = ['peep', 'fio2'];
+/**
+ * The settings a change to or from HFOV keeps: FiO2 alone. An oscillator sets a mean airway
+ * pressure and no PEEP, so a conventional mode's PEEP is not in force under HFOV, nor is a PEEP
+ * written under HFOV the PEEP of the mode that follows (common practice, no source).
+ */
+const KEPT_ACROSS_OSCILLATION: readonly string[] = ['fio2'];
+
+/** Whether a mode word names high-frequency oscillation, in any case. */
+function isOscillation(mode: string): boolean {
+  return mode.toUpperCase() === OSCILLATION_MODE;
 }
 
 /** The first value of field `id` among `stated[from, to)`. */

@@ -276,6 +276,9 @@ function readOxygenation(g: GasFacts, out: Interpretation[]): void {
   else if (sideOf(pao2.value, LOW_NORMAL_PAO2_MMHG, g.o2Resolution) < 0) out.push(new Reading('oxygenation', BASIS_PAO2, g, false, mildlyReducedText));
   else out.push(new Reading('oxygenation', BASIS_PAO2, g, false, adequateOxygenationText));
   // Berlin oxygenation band: only with PEEP or CPAP ≥ 5 cmH2O; an oxygenation band, never a diagnosis.
+  // Not under HFOV: an oscillator sets a mean airway pressure and no PEEP, so the definition's
+  // condition on PEEP is not met nor failed there (the oxygenation index is worked out instead).
+  if (c.oscillation()) return;
   const peep = (g.peep = c.peepLike());
   const adjusted = c.derivedValue('pf_ratio_altitude_adjusted');
   const pfForBand = adjusted ?? pf;

@@ -228,7 +228,7 @@ function carryText(field: FieldDef, section: SectionId): string {
   if (kind === 'setting' && !field.reading) {
     return section === 'oxygen'
       ? 'Carries forward: yes, until the next `oxygen` line (which replaces it) or a `vent` line.'
-      : 'Carries forward: yes, until restated (a new `mode` keeps only PEEP and FiO2), or until an `oxygen` line.';
+      : 'Carries forward: yes, until restated (a new `mode` keeps only PEEP and FiO2; a change to or from HFOV only FiO2), or until an `oxygen` line.';
   }
   // "Reading" names Pneumark's interpretations elsewhere: a value measured on a device is a measurement.
   if (kind === 'setting') return 'Carries forward: no — a value measured on the device belongs to its timepoint; the settings on this line carry forward.';
