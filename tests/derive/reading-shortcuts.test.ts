@@ -87,8 +87,8 @@ describe('settings carried from two lines', () => {
 
   it('are named together when they come from one line, and not at all when stated with the gas', () => {
     const note = ['@ 08:00', 'oxygen niv ipap 14, epap 6, fio2 0.5', '@ 09:00', 'abg 7.36/44/90/24.4', '@ 10:00', 'oxygen niv ipap 14, epap 6, fio2 0.5', 'abg 7.36/44/90/24.4'].join('\n');
-    expect(readings(note, {}, 1)['oxygenation-band']).toMatch(/with EPAP 6 cmH2O \(FiO2 and EPAP carried from line 2\): consistent/);
-    expect(readings(note, {}, 2)['oxygenation-band']).toMatch(/with EPAP 6 cmH2O: consistent/);
+    expect(readings(note, {}, 1)['oxygenation-band']).toMatch(/with EPAP 6 cmH2O \(FiO2 and EPAP carried from line 2\): below the 200–300 mmHg oxygenation band/);
+    expect(readings(note, {}, 2)['oxygenation-band']).toMatch(/with EPAP 6 cmH2O: below the 200–300 mmHg oxygenation band/);
   });
 });
 

@@ -7,7 +7,7 @@ import { canonicalWord, FIELDS, keysInSection, type FieldDef } from '../fields/r
 import { SECTIONS, type SectionId } from '../fields/sections';
 import { convert, unitById, UNITS, unitsForSpelling, type UnitDef } from '../fields/units';
 import type { ItemNode, LineFix, PairValue, Span } from '../syntax/tree';
-import { pairNumbers, thousandsReading } from '../syntax/parser';
+import { inchesAfterFeet, pairNumbers, thousandsReading } from '../syntax/parser';
 import { scanNumber } from '../syntax/lexer';
 import { formatNumber, wordList } from '../util/format';
 import { closest, editDistance } from '../util/suggest';
@@ -217,6 +217,8 @@ export function readItem(item: ItemNode, section: SectionId, line: number, ctx: 
     const number = item.value;
     if (number?.kind === 'number' && number.decimalComma && thousandsReading(field, number.text, item.unitText) !== null) usable = false;
   }
+  // `height 5 ft 10 in`: the feet alone are not the height meant (the inches are reported by the parser, PN105).
+  if (readUnit.id === 'ft' && field.id === 'height' && inchesAfterFeet(lineText, item.span.end) !== null) usable = false;
   let unitDoubt: string | null = null;
   if (unitImplied && value !== null && written !== null) {
     const likely = otherUnitLikely(field, value, written, readUnit, canonical, ctx);

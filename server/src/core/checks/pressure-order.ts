@@ -1,7 +1,9 @@
 /**
  * Pressures that must come in order: PEEP ≤ plateau ≤ peak on the ventilator, and
  * diastolic ≤ systolic blood pressure. Ventilator pressures compare the values in force at a
- * timepoint (one may be carried), and report only where one of the pair was stated there.
+ * timepoint (one may be carried), and report only where one of the pair was stated there. PEEP
+ * and peak are compared only where no plateau is in force: with one, a PEEP above the peak puts
+ * one of the other two pairs out of order, and that one is reported.
  */
 import type { InputValue, Timepoint } from '../analysis/model';
 import { toRange } from '../syntax/tree';
@@ -41,6 +43,7 @@ const above = (value: number, other: number): string => formatShort(value, decim
 
 const peepAbovePlateauMessage = (low: number, high: number): string => `PEEP ${above(low, high)} cmH2O is above the plateau pressure ${above(high, low)} cmH2O; plateau pressure includes PEEP.`;
 const plateauAbovePeakMessage = (low: number, high: number): string => `Plateau pressure ${above(low, high)} cmH2O is above the peak pressure ${above(high, low)} cmH2O; were they swapped?`;
+const peepAbovePeakMessage = (low: number, high: number): string => `PEEP ${above(low, high)} cmH2O is above the peak pressure ${above(high, low)} cmH2O; peak pressure includes PEEP.`;
 
 export const peepAbovePlateau = defineCheck({
   code: 'PN303',
@@ -73,6 +76,25 @@ export const plateauAbovePeak = defineCheck({
   source: 'respiratory mechanics: peak = plateau + resistive pressure (common practice, no source)',
   runTimepoint(ctx) {
     orderCheck(ctx, 'plateau', 'peak', plateauAbovePeakMessage);
+  },
+});
+
+export const peepAbovePeak = defineCheck({
+  code: 'PN314',
+  alias: 'peep-above-peak',
+  title: 'PEEP above peak pressure',
+  severity: 'error',
+  tags: ['plausibility'],
+  doc: {
+    fires: 'PEEP is higher than the peak pressure in force at the same timepoint, where no plateau pressure is measured. The peak pressure is measured above atmospheric pressure and includes PEEP (PEEP plus the pressures that move the breath), so it cannot be lower. With a plateau measured, PEEP above plateau (PN303) or plateau above peak (PN304) is reported instead.',
+    example: 'vent peep 12, peak 10',
+    fix: 'Check both values; a peak written as the pressure above PEEP (a set inspiratory pressure or pressure support) is a common slip.',
+  },
+  source: 'respiratory mechanics: peak pressure = PEEP + resistive + elastic pressure, measured above atmospheric (common practice, no source)',
+  runTimepoint(ctx) {
+    // A plateau in force is compared with both (PN303, PN304); asked without building the value.
+    if (ctx.timepoint.values.numberOf('plateau') !== null) return;
+    orderCheck(ctx, 'peep', 'peak', peepAbovePeakMessage);
   },
 });
 

@@ -11,7 +11,7 @@ import { formatNumber, wordList } from '../util/format';
 import { describeOrigin, kpaResolutionMmhg } from '../present';
 import type { DerivedCategory, DerivedValue, InputOrigin, MissingValue, NotApplicable, Term } from './model';
 import { NONE } from '../util/lists';
-import { MODES_WITH_SET_BREATHS, OSCILLATION_MODE } from '../physiology/mechanics';
+import { MODES_WITH_BACKUP_RATE, MODES_WITH_SET_BREATHS, OSCILLATION_MODE } from '../physiology/mechanics';
 import { keptFor, SmallStore, type Kept } from '../util/small-store';
 
 export type { Term } from './model';
@@ -299,12 +299,16 @@ export class DeriveContext {
    * Total respiratory rate: measured (vitals) at this timepoint, else the set ventilator rate. A
    * set rate of 0 is no rate of breathing (in a spontaneous mode the patient sets the rate; in a
    * mode with mandatory breaths it is a mistake, PN312): null then, never a minute ventilation of 0.
+   * Nor is the rate set in pressure support or CPAP, a backup rate (`MODES_WITH_BACKUP_RATE`): null
+   * there, so a measured rate is asked for.
    */
   respiratoryRate(): Term | null {
     const measured = this.field('rr', 'RR');
     if (measured) return measured;
     const set = this.field('vent_rate', 'RR (set)');
-    return set !== null && set.value > 0 ? set : null;
+    if (set === null || !(set.value > 0)) return null;
+    const mode = this.word('mode');
+    return mode !== null && MODES_WITH_BACKUP_RATE.has(mode.word) ? null : set;
   }
 
   /**

@@ -194,6 +194,8 @@ class GasFacts {
   peep: Term | null = null;
   onBoundary: number | undefined = undefined;
   band: BerlinOxygenationBand | null = null;
+  /** The band's PEEP is noninvasive (EPAP on NIV, CPAP on an oxygen line): the definition names the 200–300 mmHg band only there. */
+  noninvasive = false;
   cls: AcidBaseClassification | null = null;
 
   constructor(readonly c: DeriveContext, readonly settings: Settings) {
@@ -275,7 +277,8 @@ function readOxygenation(g: GasFacts, out: Interpretation[]): void {
   else if (g.onOxygen && pf && sideOf(pf.value, 300, pfResolution) <= 0) out.push(new Reading('oxygenation', BASIS_PAO2_PF, g, true, supportedOxygenationText));
   else if (sideOf(pao2.value, LOW_NORMAL_PAO2_MMHG, g.o2Resolution) < 0) out.push(new Reading('oxygenation', BASIS_PAO2, g, false, mildlyReducedText));
   else out.push(new Reading('oxygenation', BASIS_PAO2, g, false, adequateOxygenationText));
-  // Berlin oxygenation band: only with PEEP or CPAP ≥ 5 cmH2O; an oxygenation band, never a diagnosis.
+  // Berlin oxygenation band: only with PEEP or CPAP ≥ 5 cmH2O (on noninvasive support, the
+  // 200–300 mmHg band only: see BELOW_NONINVASIVE_BAND_WORDS); an oxygenation band, never a diagnosis.
   // Not under HFOV: an oscillator sets a mean airway pressure and no PEEP, so the definition's
   // condition on PEEP is not met nor failed there (the oxygenation index is worked out instead).
   if (c.oscillation()) return;
@@ -292,6 +295,7 @@ function readOxygenation(g: GasFacts, out: Interpretation[]): void {
   g.adjusted = adjusted !== null;
   g.onBoundary = onBoundary;
   g.band = band;
+  g.noninvasive = peep.fieldId !== 'peep';
   out.push(new Reading('oxygenation-band', [adjusted ? 'pf_ratio_altitude_adjusted' : 'pf_ratio', peep.fieldId ?? 'peep'], g, true, berlinBandText));
 }
 
@@ -365,8 +369,18 @@ function berlinBandText(g: GasFacts): string {
   // The bands are defined in mmHg: a kPa note gets the P/F in both units.
   const pfShown = `${g.onBoundary ?? formatAgainst(pf, 0, 100, 200, 300)} mmHg`;
   const carried = carriedWords(g.fio2, peep);
-  return `P/F ${g.gas.kpa ? `${kpaNumber(pf)} kPa (${pfShown})` : pfShown}${g.adjusted ? ' (adjusted for altitude)' : ''} with ${peep.name} ${formatAgainst(peep.value, 0, BERLIN_MIN_PEEP_CMH2O)} cmH2O${carried ? ` (${carried})` : ''}${BAND_WORDS[band]}`;
+  // On noninvasive support (EPAP, an oxygen line's CPAP) the definition names the 200–300 mmHg band only.
+  const words = g.noninvasive && band !== 'pf-200-to-300' ? BELOW_NONINVASIVE_BAND_WORDS : BAND_WORDS[band];
+  return `P/F ${g.gas.kpa ? `${kpaNumber(pf)} kPa (${pfShown})` : pfShown}${g.adjusted ? ' (adjusted for altitude)' : ''} with ${peep.name} ${formatAgainst(peep.value, 0, BERLIN_MIN_PEEP_CMH2O)} cmH2O${carried ? ` (${carried})` : ''}${words}`;
 }
+
+/**
+ * What the band reading says of a P/F at or below 200 mmHg on noninvasive support: the Berlin
+ * definition names its 200–300 mmHg band "with PEEP or CPAP ≥ 5 cmH2O", which may be given
+ * noninvasively, and its two lower bands "with PEEP ≥ 5 cmH2O" only, on invasive ventilation
+ * (ARDS Definition Task Force, JAMA 2012;307:2526–2533).
+ */
+const BELOW_NONINVASIVE_BAND_WORDS = ': below the 200–300 mmHg oxygenation band, the one band the Berlin definition names on noninvasive support (its 100–200 and ≤ 100 mmHg bands need PEEP on invasive ventilation) — an oxygenation band, not a diagnosis.';
 
 /**
  * What the band reading says of each band, after its numbers: written once rather than pieced

@@ -43,6 +43,14 @@ export type Sex = 'male' | 'female';
 export const MODES_WITH_SET_BREATHS: ReadonlySet<string> = new Set(['VC', 'PC', 'PRVC', 'SIMV']);
 
 /**
+ * Ventilator modes in which the patient sets the rate of breathing: pressure support and CPAP
+ * deliver no mandatory breath, and a rate set there is a backup (apnoea) rate, given only if the
+ * patient stops breathing, so it is no rate of breathing and VT × that rate is no minute
+ * ventilation (common practice, no source). A measured rate is needed there.
+ */
+export const MODES_WITH_BACKUP_RATE: ReadonlySet<string> = new Set(['PS', 'CPAP']);
+
+/**
  * The ventilator mode (its canonical word) of high-frequency oscillation: its rate is an
  * oscillation frequency and it gives no conventional breath, so what is worked out from breaths
  * (VT × rate, plateau or peak − PEEP) and the limits of breaths do not apply (common practice, no source).

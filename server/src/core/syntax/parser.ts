@@ -1391,6 +1391,13 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
   while (i < n) {
     const chunk = chunks[i]!;
     if (numberChunk(chunk) > 0 || readSlashGroup(chunk, source)) {
+      const feet = count > 0 ? feetAndInchesIssue(items[count - 1]!, chunk, source) : null;
+      if (feet !== null) {
+        issues.push(feet);
+        // The inches' unit (`in`) is part of what the finding names: no unknown key of its own.
+        while (i < n && chunks[i]!.start < feet.span.end) i++;
+        continue;
+      }
       issues.push({ check: 'stray-text', span: chunk.span, message: `\`${chunk.text}\` has no key; write it as \`key value\`, e.g. \`hr 118\`.`, fixes: [] });
       i++;
       continue;
@@ -1533,6 +1540,59 @@ export function thousandsReading(field: FieldDef | null, text: string, unitText:
   const possible = unitsWithin(field, value, null, field.hard);
   const fits = unitText === null ? possible.length > 0 : unitsForSpelling(unitText).some((u) => possible.includes(u));
   return fits ? value : null;
+}
+
+/**
+ * `height 5 ft 10 in`: the inches written after a length in feet (a number of 0 to under 12, bare or
+ * followed by `in`, `inch` or `inches`, glued or after blanks, maybe after a comma), read from the
+ * line from `feetEnd`, where the unit `ft` ends; null when no such inches follow. A value of the
+ * format is one number and one unit, so the parser reports them (`feetAndInchesIssue`) and the
+ * reader keeps the feet alone out of calculations: 5 ft is not the height meant. 1 ft = 12 in.
+ */
+export function inchesAfterFeet(source: string, feetEnd: number): { readonly inches: number; readonly end: number } | null {
+  let at = feetEnd;
+  while (isBlank(source.charCodeAt(at))) at++;
+  if (source.charCodeAt(at) === 0x2c /* , */) {
+    at++;
+    while (isBlank(source.charCodeAt(at))) at++;
+  }
+  const numberStart = at;
+  while (isDigit(source.charCodeAt(at))) at++;
+  if (at === numberStart) return null;
+  if (source.charCodeAt(at) === 0x2e /* . */ && isDigit(source.charCodeAt(at + 1))) {
+    at++;
+    while (isDigit(source.charCodeAt(at))) at++;
+  }
+  const inches = Number(source.slice(numberStart, at));
+  if (!(inches < 12)) return null;
+  let end = at;
+  while (isBlank(source.charCodeAt(end))) end++;
+  const word = /^[A-Za-z]+/.exec(source.slice(end, end + 8))?.[0] ?? '';
+  if (word !== '') {
+    if (!unitsForSpelling(word).some((u) => u.id === 'in')) return null;
+    end += word.length;
+  } else end = at;
+  // The inches end where the item would: at a blank, a comma, a comment or the end of the line.
+  const next = source.charCodeAt(end);
+  return Number.isNaN(next) || isBlank(next) || next === 0x2c /* , */ || next === 0x23 /* # */ ? { inches, end } : null;
+}
+
+/** The finding on inches written after a height in feet (`inchesAfterFeet`), with the height in inches offered; null when none follow. */
+function feetAndInchesIssue(previous: Item, chunk: Word, source: string): SyntaxIssue | null {
+  const feet = previous.number;
+  if (feet === null || previous.field?.id !== 'height' || previous.unitText === null || !unitsForSpelling(previous.unitText).some((u) => u.id === 'ft')) return null;
+  const inches = inchesAfterFeet(source, previous.end);
+  if (inches === null || inches.end <= chunk.start) return null;
+  const total = Math.round((feet * 12 + inches.inches) * 100) / 100;
+  const from = previous.value?.span.start ?? previous.start;
+  const written = source.slice(from, inches.end);
+  const span = { start: chunk.start, end: inches.end };
+  return {
+    check: 'stray-text',
+    span,
+    message: `\`${written}\` is read as ${previous.value?.text ?? feet} ${previous.unitText}: feet and inches are not read together. Write the height in one unit, \`${total} in\` (${Math.round(total * 2.54)} cm); until then it is not used in calculations.`,
+    fixes: [{ title: `Write \`${total} in\``, edits: [{ span: { start: from, end: inches.end }, newText: `${total} in` }], preferred: true }],
+  };
 }
 
 /** The items of the line `parseItems` reads (emptied before it returns). */
