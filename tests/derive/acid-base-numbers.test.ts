@@ -86,3 +86,24 @@ describe('every acid–base reading names pH, PaCO2 and HCO3 with their units', 
     expect(text).toMatch(/HCO3 \d+\.\d mmol\/L/);
   });
 });
+
+describe('a value on the end of a range or on a limit on paper is on it here, whatever floating point makes of the sum', () => {
+  it('HCO3 29.7 at PaCO2 62 is on the low end of the chronic range, 24 + 3.5 × 2.2 − 2 = 29.7 mmol/L (Narins & Emmett 1980; Adrogué & Madias 2010, from memory), so within it', () => {
+    // 24 + 3.5 × 2.2 − 2 is 29.700000000000003 in floating point; pH 7.29 fits (0.0307 × 62 × 10^1.19 ≈ 29.5).
+    const text = reading('abg 7.29/62/58/29.7');
+    expect(text).toBe('Consistent with chronic respiratory acidosis (pH 7.29, PaCO2 62 mmHg, HCO3 29.7 mmol/L), with HCO3 within the 29.7–37.0 mmol/L expected if chronic (24–28 mmol/L if acute).');
+    expect(acidBaseLabel(text)).toBe('resp. acidosis, chronic');
+  });
+
+  it('an anion gap of 135 − (100.1 + 22.9) = 12 mmol/L is on the upper normal of 12 (common practice, no source), not above it', () => {
+    // 135 − 100.1 − 22.9 is 12.000000000000007 in floating point. pH 7.39 and PaCO2 38 fit HCO3 22.9
+    // (0.0307 × 38 × 10^1.29 ≈ 22.7, Henderson–Hasselbalch).
+    const gas = 'abg 7.39/38/90/22.9\nlabs na 135, cl 100.1';
+    expect(reading(gas)).toBe('Consistent with normal acid–base balance (pH 7.39, PaCO2 38 mmHg, HCO3 22.9 mmol/L).');
+    expect(derived(`@ 08:00\noxygen room air\n${gas}`, 'anion_gap').value).toBeCloseTo(12, 9);
+  });
+
+  it('so is the delta ratio: none from a gap of 12 mmol/L, which is not raised (Rastegar 2007, from memory)', () => {
+    expect(() => derived('@ 08:00\noxygen room air\nabg 7.39/38/90/22.9\nlabs na 135, cl 100.1', 'delta_ratio')).toThrow(/was not derived/);
+  });
+});

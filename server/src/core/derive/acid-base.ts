@@ -1,5 +1,6 @@
 /** Derived values of acid–base balance. The interpretation itself lives in interpret.ts. */
 import {
+  ANION_GAP_UPPER_NORMAL_MMOL_L,
   SOURCES,
   acidBaseConsistency,
   anionGap,
@@ -12,6 +13,7 @@ import {
   hco3FromPhPco2,
   type AcidBaseClassification,
 } from '../physiology';
+import { sideOf } from '../physiology/numeric';
 import { defineDerived, type DeriveContext, type Outcome, type Term } from './context';
 import { decimalsAgainst, formatNumber } from '../util/format';
 import type { Kept } from '../util/small-store';
@@ -161,7 +163,8 @@ export const deltaRatioDef = defineDerived({
     const hco3 = bicarbonate(c);
     if (!ag || !hco3) return c.missing([ag, c.lacking('anion_gap')], [hco3, 'hco3']);
     if (hco3.value >= 24) return { kind: 'na', reason: 'HCO3 is not below 24 mmol/L' };
-    if (ag.value <= 12) return { kind: 'na', reason: 'the anion gap is not raised' };
+    // Compared as the classification compares it: a gap of 12 on paper is 12, however it was summed.
+    if (sideOf(ag.value, ANION_GAP_UPPER_NORMAL_MMOL_L) <= 0) return { kind: 'na', reason: 'the anion gap is not raised' };
     const notes = gasHco3Doubted(c, hco3);
     return c.value(deltaRatio(ag.value, hco3.value), [ag, hco3], notes.length > 0 ? { notes } : undefined);
   },

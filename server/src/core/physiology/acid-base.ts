@@ -440,8 +440,13 @@ function rangeAround(centre: number, halfWidth: number): RangeWithCentre | null 
   return { low, centre: mid, high };
 }
 
+/**
+ * Whether `value` lies in the closed `range`, its ends compared as `sideOf` compares a threshold: an
+ * end that is the value on paper is the value here (24 + 3.5 × 2.2 − 2 is 29.7, not the
+ * 29.700000000000003 floating point makes of it), so a measured HCO3 on an end is within the range.
+ */
 function within(value: number, range: NumericRange): boolean {
-  return value >= range.low && value <= range.high;
+  return sideOf(value, range.low) >= 0 && sideOf(value, range.high) <= 0;
 }
 
 /**
@@ -541,10 +546,10 @@ function compensationFor(primary: PrimaryAcidBaseFinding, paco2: number, hco3: n
       if (inChronic) return { compensation: 'appropriate', expected, chronicity: 'chronic', additional: NO_DISORDERS };
       // The response raises HCO3 in respiratory acidosis and lowers it in respiratory alkalosis.
       const acidosis = primary === 'respiratory-acidosis';
-      if (hco3 > acute.high && hco3 > chronic.high) {
+      if (sideOf(hco3, acute.high) > 0 && sideOf(hco3, chronic.high) > 0) {
         return { compensation: acidosis ? 'excessive' : 'insufficient', expected, chronicity: null, additional: ONLY_METABOLIC_ALKALOSIS };
       }
-      if (hco3 < acute.low && hco3 < chronic.low) {
+      if (sideOf(hco3, acute.low) < 0 && sideOf(hco3, chronic.low) < 0) {
         return { compensation: acidosis ? 'insufficient' : 'excessive', expected, chronicity: null, additional: ONLY_METABOLIC_ACIDOSIS };
       }
       // Between the acute and the chronic range.
@@ -660,7 +665,8 @@ export function classifyAcidBase(input: AcidBaseInput): AcidBaseClassification |
 
   let anionGapFinding: AnionGapFinding | null = null;
   if (gap !== undefined) {
-    const high = gap > ANION_GAP_UPPER_NORMAL_MMOL_L;
+    // A gap of 12 on paper (135 − 100.1 − 22.9, 12.000000000000007 in floating point) is not high.
+    const high = sideOf(gap, ANION_GAP_UPPER_NORMAL_MMOL_L) > 0;
     const ratio = deltaRatio(gap, gapHco3);
     const band = ratio === null ? null : deltaRatioBand(ratio);
     const acidosisBefore = identifiedIn('metabolic-acidosis', fromPrimary, additional);
