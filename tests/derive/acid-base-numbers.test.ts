@@ -71,6 +71,15 @@ describe('the anion gap and the delta ratio are named where they shape the readi
     expect(acidBaseLabel(text)).toBe('normal pH + met. acidosis + met. alkalosis');
   });
 
+  it('a high gap with the laboratory bicarbonate not below 24 names that bicarbonate, not the gas HCO3 below 24 it shows beside it', () => {
+    // AG 140 − (100 + 24) = 16 mmol/L with the serum bicarbonate, which the gap takes; the gas HCO3 is
+    // 22.1 (pH 7.38, PaCO2 38: 0.0307 × 38 × 10^1.28 ≈ 22.2, Henderson–Hasselbalch). A high gap with
+    // no fall in bicarbonate: delta ratio above 2 (Rastegar 2007, from memory).
+    const text = reading('abg 7.38/38/90/22.1\nlabs na 140, cl 100, hco3 24');
+    expect(text).toBe('Consistent with normal acid–base balance by pH, PaCO2 and HCO3 (pH 7.38, PaCO2 38 mmHg, HCO3 22.1 mmol/L); also consistent with an added metabolic acidosis and metabolic alkalosis (anion gap 16 mmol/L, above 12 mmol/L, with a serum HCO3 of 24.0 mmol/L, which has not fallen below 24 mmol/L).');
+    expect(acidBaseLabel(text)).toBe('normal pH + met. acidosis + met. alkalosis');
+  });
+
   it('a delta ratio above 2 names it: AG 140 − (95 + 20) = 25, (25 − 12) ÷ (24 − 20) = 3.25', () => {
     expect(reading('abg 7.33/38/95/20\nlabs na 140, cl 95, hco3 20')).toMatch(/; also consistent with an added metabolic alkalosis \(delta ratio 3\.25, above 2\)\.$/);
   });

@@ -457,7 +457,9 @@ function acidBaseReadingText(g: GasFacts): string {
   const gapCorrected = g.cls!.anionGap !== null && c.derivedValue('anion_gap_albumin_corrected') !== null;
   const ph = c.number('ph') ?? NaN;
   const hco3 = c.number('hco3') ?? NaN;
-  return acidBaseText(g.cls!, g.gas, { ph, paco2: g.paco2?.value ?? NaN, hco3, hypercapniaAboveMmhg: settings.hypercapniaAboveMmhg, co2Resolution: g.co2Resolution, gapCorrected });
+  // The anion gap takes the laboratory's bicarbonate where one is stated (derive/acid-base.ts).
+  const gapSerumHco3 = g.cls!.anionGap !== null ? c.number('hco3_serum') : null;
+  return acidBaseText(g.cls!, g.gas, { ph, paco2: g.paco2?.value ?? NaN, hco3, hypercapniaAboveMmhg: settings.hypercapniaAboveMmhg, co2Resolution: g.co2Resolution, gapCorrected, gapSerumHco3 });
 }
 
 /** The mechanism of hypoxaemia (a hypoxaemic gas only, so phrased at once). */
@@ -538,6 +540,12 @@ interface AcidBaseBasis {
   readonly hypercapniaAboveMmhg: number;
   /** The anion gap the classification used was corrected for albumin. */
   readonly gapCorrected: boolean;
+  /**
+   * The laboratory's bicarbonate (mmol/L) the anion gap and the delta ratio were worked out with, or
+   * null when they took the gas HCO3: the reading names it where it rests on it, since it is not the
+   * HCO3 the reading shows.
+   */
+  readonly gapSerumHco3: number | null;
 }
 
 /** The reference ranges the acid–base reading shows its numbers against. */
@@ -619,7 +627,10 @@ function acidBaseText(cls: AcidBaseClassification, gas: GasWords, basis: AcidBas
     const why: string[] = [];
     if (gap?.high && extra.includes('metabolic-acidosis')) why.push(`${gapShown}, above ${ANION_GAP_UPPER_NORMAL_MMOL_L} mmol/L`);
     if (extra.includes('metabolic-alkalosis')) {
-      why.push(gap?.deltaRatio === null || gap?.deltaRatio === undefined ? `${extra.includes('metabolic-acidosis') ? 'with ' : `${gapShown} with `}an HCO3 that has not fallen below ${HCO3_CENTRE_MMOL_L} mmol/L` : `${ratioShown}, above 2`);
+      // The bicarbonate that has not fallen is the one the gap took: the laboratory's, when stated, is
+      // named with its number (the gas HCO3 shown above may well be below 24).
+      const notFallen = basis.gapSerumHco3 === null ? 'an HCO3 that' : `a serum HCO3 of ${formatAgainst(basis.gapSerumHco3, HCO3_DECIMALS, HCO3_CENTRE_MMOL_L)} mmol/L, which`;
+      why.push(gap?.deltaRatio === null || gap?.deltaRatio === undefined ? `${extra.includes('metabolic-acidosis') ? 'with ' : `${gapShown} with `}${notFallen} has not fallen below ${HCO3_CENTRE_MMOL_L} mmol/L` : `${ratioShown}, above 2`);
     }
     text += `; also consistent with an added ${extra.map((d) => DISORDER_WORDS[d]).join(' and ')}${why.length > 0 ? ` (${why.join(', ')})` : ''}`;
   }
