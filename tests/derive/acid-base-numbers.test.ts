@@ -8,7 +8,7 @@
 // < 0.4, 0.4–0.8, 0.8–2, > 2 (Rastegar A, JASN 2007;18:2429–2431, from memory).
 import { describe, expect, it } from 'vitest';
 import { acidBaseLabel } from '../../server/src/core/service/hints';
-import { derived, readings } from './helpers';
+import { derivation, derived, readings } from './helpers';
 
 const reading = (gas: string) => readings(`@ 08:00\noxygen room air\n${gas}`)['acid-base'];
 
@@ -114,5 +114,34 @@ describe('a value on the end of a range or on a limit on paper is on it here, wh
 
   it('so is the delta ratio: none from a gap of 12 mmol/L, which is not raised (Rastegar 2007, from memory)', () => {
     expect(() => derived('@ 08:00\noxygen room air\nabg 7.39/38/90/22.9\nlabs na 135, cl 100.1', 'delta_ratio')).toThrow(/was not derived/);
+  });
+});
+
+describe('the anion gap of a venous gas takes its venous bicarbonate', () => {
+  // Anion gap Na − (Cl + HCO3) (common practice, no source): the bicarbonate of the sample whose
+  // sodium and chloride are given. A venous gas's HCO3 is such a bicarbonate; asking for `hco3` on a
+  // line that states one sends the writer looking for what is already there.
+  const note = '@ 08:00\nvbg 7.28/52/35/23.5, na 138, cl 100, lactate 4.1';
+
+  it('AG 138 − (100 + 23.5) = 14.5 mmol/L from a vbg line, with no bicarbonate asked for', () => {
+    const d = derivation(note);
+    expect(d.missing.find((m) => m.id === 'anion_gap')).toBeUndefined();
+    const gap = derived(note, 'anion_gap');
+    expect(gap.value).toBeCloseTo(14.5, 9);
+    expect(gap.inputs.map((t) => t.fieldId)).toEqual(['na', 'cl', 'hco3_venous']);
+    // Delta ratio (14.5 − 12) ÷ (24 − 23.5) = 5 (Rastegar 2007, from memory).
+    expect(derived(note, 'delta_ratio').value).toBeCloseTo(5, 9);
+  });
+
+  it('the laboratory bicarbonate, then the arterial HCO3, come first, as before', () => {
+    const both = '@ 08:00\nvbg 7.28/52/35/23.5, na 138, cl 100\nabg 7.33/45/80/23.0';
+    expect(derived(both, 'anion_gap').inputs.map((t) => t.fieldId)).toEqual(['na', 'cl', 'hco3']);
+    expect(derived(`${both}\nlabs hco3 22`, 'anion_gap').inputs.map((t) => t.fieldId)).toEqual(['na', 'cl', 'hco3_serum']);
+  });
+
+  it('a venous HCO3 that does not fit the venous pH and PvCO2 is doubted as an arterial one is (Henderson–Hasselbalch)', () => {
+    // pH 7.28 and PvCO2 52 give 0.0307 × 52 × 10^1.18 ≈ 24.2 mmol/L, not 35.
+    const gap = derived('@ 08:00\nvbg 7.28/52/35/35, na 145, cl 98', 'anion_gap');
+    expect(gap.notes).toContain('uses the venous HCO3, which does not fit the venous pH and PvCO2');
   });
 });

@@ -18,23 +18,31 @@ import { defineDerived, type DeriveContext, type Outcome, type Term } from './co
 import { decimalsAgainst, formatNumber } from '../util/format';
 import type { Kept } from '../util/small-store';
 
-/** Serum bicarbonate when the laboratory gave one, else the gas analyser's. */
+/**
+ * The bicarbonate of the anion gap: the laboratory's when it gave one, else the arterial gas
+ * analyser's, else a venous gas analyser's (the sodium and chloride of a venous gas come with a
+ * bicarbonate of the same sample, and a laboratory's bicarbonate is venous too).
+ */
 function bicarbonate(c: DeriveContext): Term | null {
-  return c.field('hco3_serum', 'HCO3') ?? c.field('hco3', 'HCO3');
+  return c.field('hco3_serum', 'HCO3') ?? c.field('hco3', 'HCO3') ?? c.field('hco3_venous', 'HCO3');
 }
 
 /**
- * A note for values that take the gas analyser's HCO3 (no laboratory bicarbonate is stated) when
- * that HCO3 does not fit the gas's pH and PaCO2 (PN402): the value is worked out, but is only as
- * good as that HCO3. Checked directly, not through the classification, which itself reads the gap.
+ * A note for values that take a gas analyser's HCO3 (no laboratory bicarbonate is stated) when
+ * that HCO3 does not fit the gas's pH and PCO2 (for an arterial gas, PN402): the value is worked
+ * out, but is only as good as that HCO3. Checked directly, not through the classification, which
+ * itself reads the gap.
  */
 function gasHco3Doubted(c: DeriveContext, hco3: Term): string[] {
-  if (hco3.fieldId !== 'hco3') return [];
-  const ph = c.field('ph');
-  const paco2 = c.field('paco2');
-  if (!ph || !paco2) return [];
-  const fit = acidBaseConsistency(ph.value, paco2.value, hco3.value, c.writtenResolutionMmhg('paco2'));
-  return fit && !fit.consistent ? ['uses the gas HCO3, which does not fit the pH and PaCO2 (see PN402)'] : [];
+  const venous = hco3.fieldId === 'hco3_venous';
+  if (hco3.fieldId !== 'hco3' && !venous) return [];
+  const ph = c.field(venous ? 'ph_venous' : 'ph');
+  const pco2Id = venous ? 'pvco2' : 'paco2';
+  const pco2 = c.field(pco2Id);
+  if (!ph || !pco2) return [];
+  const fit = acidBaseConsistency(ph.value, pco2.value, hco3.value, c.writtenResolutionMmhg(pco2Id));
+  if (!fit || fit.consistent) return [];
+  return [venous ? 'uses the venous HCO3, which does not fit the venous pH and PvCO2' : 'uses the gas HCO3, which does not fit the pH and PaCO2 (see PN402)'];
 }
 
 /** The acid–base classification of this timepoint's arterial gas (computed once per timepoint). */
