@@ -142,6 +142,6 @@ describe('the anion gap of a venous gas takes its venous bicarbonate', () => {
   it('a venous HCO3 that does not fit the venous pH and PvCO2 is doubted as an arterial one is (Henderson–Hasselbalch)', () => {
     // pH 7.28 and PvCO2 52 give 0.0307 × 52 × 10^1.18 ≈ 24.2 mmol/L, not 35.
     const gap = derived('@ 08:00\nvbg 7.28/52/35/35, na 145, cl 98', 'anion_gap');
-    expect(gap.notes).toContain('uses the venous HCO3, which does not fit the venous pH and PvCO2');
+    expect(gap.notes).toContain('uses the venous HCO3, which does not fit the venous pH and PvCO2 (see PN402)');
   });
 });

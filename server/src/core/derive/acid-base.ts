@@ -29,9 +29,8 @@ function bicarbonate(c: DeriveContext): Term | null {
 
 /**
  * A note for values that take a gas analyser's HCO3 (no laboratory bicarbonate is stated) when
- * that HCO3 does not fit the gas's pH and PCO2 (for an arterial gas, PN402): the value is worked
- * out, but is only as good as that HCO3. Checked directly, not through the classification, which
- * itself reads the gap.
+ * that HCO3 does not fit the gas's pH and PCO2 (PN402): the value is worked out, but is only as
+ * good as that HCO3. Checked directly, not through the classification, which itself reads the gap.
  */
 function gasHco3Doubted(c: DeriveContext, hco3: Term): string[] {
   const venous = hco3.fieldId === 'hco3_venous';
@@ -42,7 +41,7 @@ function gasHco3Doubted(c: DeriveContext, hco3: Term): string[] {
   if (!ph || !pco2) return [];
   const fit = acidBaseConsistency(ph.value, pco2.value, hco3.value, c.writtenResolutionMmhg(pco2Id));
   if (!fit || fit.consistent) return [];
-  return [venous ? 'uses the venous HCO3, which does not fit the venous pH and PvCO2' : 'uses the gas HCO3, which does not fit the pH and PaCO2 (see PN402)'];
+  return [venous ? 'uses the venous HCO3, which does not fit the venous pH and PvCO2 (see PN402)' : 'uses the gas HCO3, which does not fit the pH and PaCO2 (see PN402)'];
 }
 
 /** The acid–base classification of this timepoint's arterial gas (computed once per timepoint). */
