@@ -145,3 +145,11 @@ describe('the anion gap of a venous gas takes its venous bicarbonate', () => {
     expect(gap.notes).toContain('uses the venous HCO3, which does not fit the venous pH and PvCO2 (see PN402)');
   });
 });
+
+describe('a PaCO2 outside its expected range is never shown rounded onto an end it is outside', () => {
+  it('PaCO2 18.5 below Winters\' 19.2–23.2 mmHg (HCO3 8.8: 1.5 × 8.8 + 8 ± 2) is not "19 mmHg below the expected 19–23"', () => {
+    // Albert, Dell & Winters 1967 (from memory); pH 7.29 fits (0.0307 × 18.5 × 10^1.19 ≈ 8.8).
+    const text = reading('abg ph 7.29, pco2 18.5, po2 90, hco3 8.8');
+    expect(text).toMatch(/; PaCO2 18\.5 mmHg is below the expected 19–23 mmHg: consistent with an added respiratory alkalosis\.$/);
+  });
+});

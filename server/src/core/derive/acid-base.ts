@@ -225,7 +225,8 @@ function respiratoryExpected(chronicity: 'acute' | 'chronic') {
       const withheld = withheldForInconsistentGas(cls);
       if (withheld) return withheld;
       if (cls.primary !== 'respiratory-acidosis' && cls.primary !== 'respiratory-alkalosis') return { kind: 'na', reason: 'the primary disorder is not respiratory' };
-      const r = expectedHco3Respiratory(paco2.value, chronicity);
+      // Over the PaCO2s a value written in kPa stands for, as the classification reads it.
+      const r = expectedHco3Respiratory(paco2.value, chronicity, c.writtenResolutionMmhg('paco2'));
       return r ? c.value((r.low + r.high) / 2, [paco2], { range: r, notes: ['span of published coefficients, ± 2 mmol/L'], decimals: rangeDecimals(r, 0, c.field('hco3')?.value) }) : c.value(null, []);
     },
   });
