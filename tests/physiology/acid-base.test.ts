@@ -130,6 +130,15 @@ describe('expected compensation', () => {
     expect(range?.low).toBeCloseTo(low, 12);
     expect(range?.high).toBeCloseTo(high, 12);
   });
+  it('with the resolution of a PaCO2 written in kPa, spans what every PaCO2 it stands for gives (same sources)', () => {
+    // 12.0 kPa = 90.007 mmHg, written to ± 0.375 mmHg: acute 24 + (89.63 − 40) ÷ 10 − 2 = 26.96 to
+    // 24 + (90.38 − 40) ÷ 10 + 2 = 31.04 mmol/L, which holds the 27 mmol/L that 90 mmHg gives.
+    const range = expectedHco3Respiratory(12 * 7.50062, 'acute', 0.375);
+    expect(range?.low).toBeCloseTo(26.963, 3);
+    expect(range?.high).toBeCloseTo(31.038, 3);
+    expect(classifyAcidBase({ ph: 7.09, paco2Mmhg: 12 * 7.50062, hco3MmolL: 27, paco2ResolutionMmhg: 0.375 })?.respiratoryChronicity).toBe('acute');
+    expect(classifyAcidBase({ ph: 7.09, paco2Mmhg: 12 * 7.50062, hco3MmolL: 27 })?.compensation).toBe('insufficient');
+  });
   it('returns null for an unknown chronicity or PaCO2 ≤ 0', () => {
     expect(expectedHco3Respiratory(60, 'subacute' as unknown as RespiratoryChronicityInput)).toBeNull();
     expect(expectedHco3Respiratory(0, 'acute')).toBeNull();
