@@ -80,6 +80,17 @@ describe('the anion gap and the delta ratio are named where they shape the readi
     expect(acidBaseLabel(text)).toBe('normal pH + met. acidosis + met. alkalosis');
   });
 
+  it('a mixed acidosis names the anion gap of its metabolic part, as a metabolic acidosis does', () => {
+    // AG 140 − (95 + 18) = 27 mmol/L, above 12 (common practice, no source); delta ratio (27 − 12) ÷
+    // (24 − 18) = 2.50 (Rastegar 2007, from memory), its HCO3 above what the gap explains being the
+    // respiratory acidosis's. pH 7.10 fits (0.0307 × 60 × 10^1.0 ≈ 18.4, Henderson–Hasselbalch).
+    const text = reading('abg 7.10/60/90/18\nlabs na 140, cl 95');
+    expect(text).toBe('Consistent with a mixed metabolic and respiratory acidosis, the metabolic part with a high anion gap (pH 7.10; PaCO2 60 mmHg above 45 mmHg and HCO3 18.0 mmol/L below 22 mmol/L; anion gap 27 mmol/L, delta ratio 2.50).');
+    expect(acidBaseLabel(text)).toBe('mixed acidosis, high AG');
+    // With a normal gap (140 − (110 + 18) = 12), the gap is named without a delta ratio.
+    expect(reading('abg 7.10/60/90/18\nlabs na 140, cl 110')).toBe('Consistent with a mixed metabolic and respiratory acidosis, the metabolic part with a normal anion gap (pH 7.10; PaCO2 60 mmHg above 45 mmHg and HCO3 18.0 mmol/L below 22 mmol/L; anion gap 12 mmol/L).');
+  });
+
   it('a delta ratio above 2 names it: AG 140 − (95 + 20) = 25, (25 − 12) ÷ (24 − 20) = 3.25', () => {
     expect(reading('abg 7.33/38/95/20\nlabs na 140, cl 95, hco3 20')).toMatch(/; also consistent with an added metabolic alkalosis \(delta ratio 3\.25, above 2\)\.$/);
   });

@@ -615,7 +615,10 @@ function acidBaseText(cls: AcidBaseClassification, gas: GasWords, basis: AcidBas
       // Both components beyond their reference ranges, each named with the limit it is beyond.
       const co2Limit = acid ? limits.paco2[1] : limits.paco2[0];
       const hco3Limit = acid ? limits.hco3[0] : limits.hco3[1];
-      text = `Consistent with a mixed metabolic and respiratory ${acid ? 'acidosis' : 'alkalosis'} (${phShown}; PaCO2 ${gas.measured(paco2, basis.co2Resolution, co2Limit)} ${acid ? 'above' : 'below'} ${gas.limit(co2Limit, paco2)} and HCO3 ${formatAgainst(hco3, HCO3_DECIMALS, hco3Limit)} mmol/L ${acid ? 'below' : 'above'} ${formatShort(hco3Limit)} mmol/L)`;
+      // The metabolic part of a mixed acidosis is named by its anion gap, as a metabolic acidosis is.
+      const metabolicPart = acid && gapKind ? `, the metabolic part${gapWords}` : '';
+      const gapDetail = acid && gapKind ? `; ${[gapShown, gapKind === 'normal-anion-gap' ? '' : ratioShown].filter(Boolean).join(', ')}` : '';
+      text = `Consistent with a mixed metabolic and respiratory ${acid ? 'acidosis' : 'alkalosis'}${metabolicPart} (${phShown}; PaCO2 ${gas.measured(paco2, basis.co2Resolution, co2Limit)} ${acid ? 'above' : 'below'} ${gas.limit(co2Limit, paco2)} and HCO3 ${formatAgainst(hco3, HCO3_DECIMALS, hco3Limit)} mmol/L ${acid ? 'below' : 'above'} ${formatShort(hco3Limit)} mmol/L${gapDetail})`;
       break;
     }
     default: {
