@@ -37,6 +37,16 @@ describe('a number in a message carries its unit', () => {
       'HCO3 15.0 mmol/L does not fit pH 7.40 and PaCO2 40 mmHg, which give 24.5 mmol/L: a transcription error, or values from different samples?',
     ]);
   });
+
+  it('so is a venous gas checked, by the same Henderson–Hasselbalch equation, and named as venous (standard physiology)', () => {
+    // pH 7.28 and PvCO2 52 mmHg give 0.0307 × 52 × 10^1.18 ≈ 24.2 mmol/L, not 35.
+    expect(messages('@ 08:00\nvbg 7.28/52/35/35', 'PN402')).toEqual([
+      'HCO3 35.0 mmol/L does not fit the venous pH 7.28 and PvCO2 52 mmHg, which give 24.2 mmol/L: a transcription error, or values from different samples?',
+    ]);
+    // A venous gas that fits (0.0307 × 52 × 10^1.18 ≈ 24.2 for 24.5) is not reported, nor is an arterial
+    // gas checked against a venous one stated beside it.
+    expect(messages('@ 08:00\nvbg 7.28/52/35/24.5\nabg 7.40/40/90/24.4', 'PN402')).toEqual([]);
+  });
 });
 
 describe('FiO2 outside 0.21–1.0 (PN307) is compared in the unit it was read in', () => {

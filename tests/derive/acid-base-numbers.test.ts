@@ -8,7 +8,7 @@
 // < 0.4, 0.4–0.8, 0.8–2, > 2 (Rastegar A, JASN 2007;18:2429–2431, from memory).
 import { describe, expect, it } from 'vitest';
 import { acidBaseLabel } from '../../server/src/core/service/hints';
-import { derived, readings } from './helpers';
+import { derivation, derived, readings } from './helpers';
 
 const reading = (gas: string) => readings(`@ 08:00\noxygen room air\n${gas}`)['acid-base'];
 
@@ -71,6 +71,26 @@ describe('the anion gap and the delta ratio are named where they shape the readi
     expect(acidBaseLabel(text)).toBe('normal pH + met. acidosis + met. alkalosis');
   });
 
+  it('a high gap with the laboratory bicarbonate not below 24 names that bicarbonate, not the gas HCO3 below 24 it shows beside it', () => {
+    // AG 140 − (100 + 24) = 16 mmol/L with the serum bicarbonate, which the gap takes; the gas HCO3 is
+    // 22.1 (pH 7.38, PaCO2 38: 0.0307 × 38 × 10^1.28 ≈ 22.2, Henderson–Hasselbalch). A high gap with
+    // no fall in bicarbonate: delta ratio above 2 (Rastegar 2007, from memory).
+    const text = reading('abg 7.38/38/90/22.1\nlabs na 140, cl 100, hco3 24');
+    expect(text).toBe('Consistent with normal acid–base balance by pH, PaCO2 and HCO3 (pH 7.38, PaCO2 38 mmHg, HCO3 22.1 mmol/L); also consistent with an added metabolic acidosis and metabolic alkalosis (anion gap 16 mmol/L, above 12 mmol/L, with a serum HCO3 of 24.0 mmol/L, which has not fallen below 24 mmol/L).');
+    expect(acidBaseLabel(text)).toBe('normal pH + met. acidosis + met. alkalosis');
+  });
+
+  it('a mixed acidosis names the anion gap of its metabolic part, as a metabolic acidosis does', () => {
+    // AG 140 − (95 + 18) = 27 mmol/L, above 12 (common practice, no source); delta ratio (27 − 12) ÷
+    // (24 − 18) = 2.50 (Rastegar 2007, from memory), its HCO3 above what the gap explains being the
+    // respiratory acidosis's. pH 7.10 fits (0.0307 × 60 × 10^1.0 ≈ 18.4, Henderson–Hasselbalch).
+    const text = reading('abg 7.10/60/90/18\nlabs na 140, cl 95');
+    expect(text).toBe('Consistent with a mixed metabolic and respiratory acidosis, the metabolic part with a high anion gap (pH 7.10; PaCO2 60 mmHg above 45 mmHg and HCO3 18.0 mmol/L below 22 mmol/L; anion gap 27 mmol/L, delta ratio 2.50).');
+    expect(acidBaseLabel(text)).toBe('mixed acidosis, high AG');
+    // With a normal gap (140 − (110 + 18) = 12), the gap is named without a delta ratio.
+    expect(reading('abg 7.10/60/90/18\nlabs na 140, cl 110')).toBe('Consistent with a mixed metabolic and respiratory acidosis, the metabolic part with a normal anion gap (pH 7.10; PaCO2 60 mmHg above 45 mmHg and HCO3 18.0 mmol/L below 22 mmol/L; anion gap 12 mmol/L).');
+  });
+
   it('a delta ratio above 2 names it: AG 140 − (95 + 20) = 25, (25 − 12) ÷ (24 − 20) = 3.25', () => {
     expect(reading('abg 7.33/38/95/20\nlabs na 140, cl 95, hco3 20')).toMatch(/; also consistent with an added metabolic alkalosis \(delta ratio 3\.25, above 2\)\.$/);
   });
@@ -84,5 +104,63 @@ describe('every acid–base reading names pH, PaCO2 and HCO3 with their units', 
     expect(text).toMatch(/pH \d\.\d\d[,;]/);
     expect(text).toMatch(/PaCO2 \d+(?:\.\d)? mmHg/);
     expect(text).toMatch(/HCO3 \d+\.\d mmol\/L/);
+  });
+});
+
+describe('a value on the end of a range or on a limit on paper is on it here, whatever floating point makes of the sum', () => {
+  it('HCO3 29.7 at PaCO2 62 is on the low end of the chronic range, 24 + 3.5 × 2.2 − 2 = 29.7 mmol/L (Narins & Emmett 1980; Adrogué & Madias 2010, from memory), so within it', () => {
+    // 24 + 3.5 × 2.2 − 2 is 29.700000000000003 in floating point; pH 7.29 fits (0.0307 × 62 × 10^1.19 ≈ 29.5).
+    const text = reading('abg 7.29/62/58/29.7');
+    expect(text).toBe('Consistent with chronic respiratory acidosis (pH 7.29, PaCO2 62 mmHg, HCO3 29.7 mmol/L), with HCO3 within the 29.7–37.0 mmol/L expected if chronic (24–28 mmol/L if acute).');
+    expect(acidBaseLabel(text)).toBe('resp. acidosis, chronic');
+  });
+
+  it('an anion gap of 135 − (100.1 + 22.9) = 12 mmol/L is on the upper normal of 12 (common practice, no source), not above it', () => {
+    // 135 − 100.1 − 22.9 is 12.000000000000007 in floating point. pH 7.39 and PaCO2 38 fit HCO3 22.9
+    // (0.0307 × 38 × 10^1.29 ≈ 22.7, Henderson–Hasselbalch).
+    const gas = 'abg 7.39/38/90/22.9\nlabs na 135, cl 100.1';
+    expect(reading(gas)).toBe('Consistent with normal acid–base balance (pH 7.39, PaCO2 38 mmHg, HCO3 22.9 mmol/L).');
+    expect(derived(`@ 08:00\noxygen room air\n${gas}`, 'anion_gap').value).toBeCloseTo(12, 9);
+  });
+
+  it('so is the delta ratio: none from a gap of 12 mmol/L, which is not raised (Rastegar 2007, from memory)', () => {
+    expect(() => derived('@ 08:00\noxygen room air\nabg 7.39/38/90/22.9\nlabs na 135, cl 100.1', 'delta_ratio')).toThrow(/was not derived/);
+  });
+});
+
+describe('the anion gap of a venous gas takes its venous bicarbonate', () => {
+  // Anion gap Na − (Cl + HCO3) (common practice, no source): the bicarbonate of the sample whose
+  // sodium and chloride are given. A venous gas's HCO3 is such a bicarbonate; asking for `hco3` on a
+  // line that states one sends the writer looking for what is already there.
+  const note = '@ 08:00\nvbg 7.28/52/35/23.5, na 138, cl 100, lactate 4.1';
+
+  it('AG 138 − (100 + 23.5) = 14.5 mmol/L from a vbg line, with no bicarbonate asked for', () => {
+    const d = derivation(note);
+    expect(d.missing.find((m) => m.id === 'anion_gap')).toBeUndefined();
+    const gap = derived(note, 'anion_gap');
+    expect(gap.value).toBeCloseTo(14.5, 9);
+    expect(gap.inputs.map((t) => t.fieldId)).toEqual(['na', 'cl', 'hco3_venous']);
+    // Delta ratio (14.5 − 12) ÷ (24 − 23.5) = 5 (Rastegar 2007, from memory).
+    expect(derived(note, 'delta_ratio').value).toBeCloseTo(5, 9);
+  });
+
+  it('the laboratory bicarbonate, then the arterial HCO3, come first, as before', () => {
+    const both = '@ 08:00\nvbg 7.28/52/35/23.5, na 138, cl 100\nabg 7.33/45/80/23.0';
+    expect(derived(both, 'anion_gap').inputs.map((t) => t.fieldId)).toEqual(['na', 'cl', 'hco3']);
+    expect(derived(`${both}\nlabs hco3 22`, 'anion_gap').inputs.map((t) => t.fieldId)).toEqual(['na', 'cl', 'hco3_serum']);
+  });
+
+  it('a venous HCO3 that does not fit the venous pH and PvCO2 is doubted as an arterial one is (Henderson–Hasselbalch)', () => {
+    // pH 7.28 and PvCO2 52 give 0.0307 × 52 × 10^1.18 ≈ 24.2 mmol/L, not 35.
+    const gap = derived('@ 08:00\nvbg 7.28/52/35/35, na 145, cl 98', 'anion_gap');
+    expect(gap.notes).toContain('uses the venous HCO3, which does not fit the venous pH and PvCO2 (see PN402)');
+  });
+});
+
+describe('a PaCO2 outside its expected range is never shown rounded onto an end it is outside', () => {
+  it('PaCO2 18.5 below Winters\' 19.2–23.2 mmHg (HCO3 8.8: 1.5 × 8.8 + 8 ± 2) is not "19 mmHg below the expected 19–23"', () => {
+    // Albert, Dell & Winters 1967 (from memory); pH 7.29 fits (0.0307 × 18.5 × 10^1.19 ≈ 8.8).
+    const text = reading('abg ph 7.29, pco2 18.5, po2 90, hco3 8.8');
+    expect(text).toMatch(/; PaCO2 18\.5 mmHg is below the expected 19–23 mmHg: consistent with an added respiratory alkalosis\.$/);
   });
 });

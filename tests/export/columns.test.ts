@@ -160,14 +160,17 @@ describe('cells', () => {
     expect([row?.na_mmol_L, row?.hb_g_dL, row?.etco2_mmHg, row?.fio2_fraction]).toEqual([139, 12, 30, 0.5]);
   });
 
-  it('describe the anion gap by the HCO3 column it uses: the serum bicarbonate, else the gas HCO3 (common practice, no source)', () => {
+  it('describe the anion gap by the HCO3 column it uses: the serum bicarbonate, else the arterial gas HCO3, else the venous one (common practice, no source)', () => {
     // Serum 20 beside a gas HCO3 of 24: 140 − (100 + 20) = 20; the gas HCO3 alone: 140 − (100 + 24) = 16.
     const [both] = rowsOf('@ day 1 08:00\nabg 7.40/40/90/24\nlabs na 140, cl 100, hco3 20');
     expect([both?.hco3_mmol_L, both?.hco3_serum_mmol_L, both?.anion_gap_mmol_L]).toEqual([24, 20, 20]);
     const [gasOnly] = rowsOf('@ day 1 08:00\nabg 7.40/40/90/24\nlabs na 140, cl 100');
     expect(gasOnly?.anion_gap_mmol_L).toBe(16);
+    // A venous gas alone: 140 − (100 + 26) = 14.
+    const [venousOnly] = rowsOf('@ day 1 08:00\nvbg 7.35/46/40/26\nlabs na 140, cl 100');
+    expect(venousOnly?.anion_gap_mmol_L).toBe(14);
     for (const name of ['anion_gap_mmol_L', 'delta_ratio']) {
-      expect(exportColumns().find((c) => c.name === name)?.description, name).toContain('`hco3_serum_mmol_L`), else the gas HCO3 (`hco3_mmol_L`)');
+      expect(exportColumns().find((c) => c.name === name)?.description, name).toContain('`hco3_serum_mmol_L`), else the arterial gas HCO3 (`hco3_mmol_L`), else the venous gas HCO3 (`hco3_venous_mmol_L`)');
     }
   });
 

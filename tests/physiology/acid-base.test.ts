@@ -130,6 +130,15 @@ describe('expected compensation', () => {
     expect(range?.low).toBeCloseTo(low, 12);
     expect(range?.high).toBeCloseTo(high, 12);
   });
+  it('with the resolution of a PaCO2 written in kPa, spans what every PaCO2 it stands for gives (same sources)', () => {
+    // 12.0 kPa = 90.007 mmHg, written to ± 0.375 mmHg: acute 24 + (89.63 − 40) ÷ 10 − 2 = 26.96 to
+    // 24 + (90.38 − 40) ÷ 10 + 2 = 31.04 mmol/L, which holds the 27 mmol/L that 90 mmHg gives.
+    const range = expectedHco3Respiratory(12 * 7.50062, 'acute', 0.375);
+    expect(range?.low).toBeCloseTo(26.963, 3);
+    expect(range?.high).toBeCloseTo(31.038, 3);
+    expect(classifyAcidBase({ ph: 7.09, paco2Mmhg: 12 * 7.50062, hco3MmolL: 27, paco2ResolutionMmhg: 0.375 })?.respiratoryChronicity).toBe('acute');
+    expect(classifyAcidBase({ ph: 7.09, paco2Mmhg: 12 * 7.50062, hco3MmolL: 27 })?.compensation).toBe('insufficient');
+  });
   it('returns null for an unknown chronicity or PaCO2 ≤ 0', () => {
     expect(expectedHco3Respiratory(60, 'subacute' as unknown as RespiratoryChronicityInput)).toBeNull();
     expect(expectedHco3Respiratory(0, 'acute')).toBeNull();
@@ -347,5 +356,31 @@ describe('null safety (fast-check)', () => {
         expect(classifyAcidBase(input)).not.toBeNull();
       }),
     );
+  });
+});
+
+describe('range ends and limits on paper are on them here (floating point)', () => {
+  it('HCO3 29.7 at PaCO2 62 is within the chronic range 29.7–37 mmol/L (24 + 3.5…5 × 2.2 ± 2: Narins & Emmett 1980; Adrogué & Madias 2010, from memory)', () => {
+    // 24 + 3.5 × 2.2 − 2 = 29.700000000000003 in floating point.
+    expect(expectedHco3Respiratory(62, 'chronic')!.low).not.toBe(29.7);
+    const result = classifyAcidBase({ ph: 7.29, paco2Mmhg: 62, hco3MmolL: 29.7 });
+    expect(result?.respiratoryChronicity).toBe('chronic');
+    expect(result?.compensation).toBe('appropriate');
+  });
+
+  it('HCO3 30.7 at PaCO2 127 is on the low end of the acute range, 24 + 1 × 8.7 − 2 = 30.7 mmol/L (same sources)', () => {
+    // 24 + 8.7 − 2 is 30.700000000000003 in floating point; pH 7.00 fits (0.0307 × 127 × 10^0.9 ≈ 30.9).
+    const result = classifyAcidBase({ ph: 7.0, paco2Mmhg: 127, hco3MmolL: 30.7 });
+    expect(result?.consistency.consistent).toBe(true);
+    expect(result?.respiratoryChronicity).toBe('acute');
+  });
+
+  it('an anion gap of 12 mmol/L on paper is not high (upper normal 12: common practice, no source)', () => {
+    // 135 − (100.1 + 22.9) is 12.000000000000007 in floating point.
+    const gap = anionGap(135, 100.1, 22.9)!;
+    expect(gap).not.toBe(12);
+    const result = classifyAcidBase({ ph: 7.4, paco2Mmhg: 40, hco3MmolL: 24, anionGapMmolL: gap });
+    expect(result?.anionGap?.high).toBe(false);
+    expect(result?.additional).toEqual([]);
   });
 });

@@ -1,5 +1,6 @@
 /** Derived values of acid–base balance. The interpretation itself lives in interpret.ts. */
 import {
+  ANION_GAP_UPPER_NORMAL_MMOL_L,
   SOURCES,
   acidBaseConsistency,
   anionGap,
@@ -12,27 +13,35 @@ import {
   hco3FromPhPco2,
   type AcidBaseClassification,
 } from '../physiology';
+import { sideOf } from '../physiology/numeric';
 import { defineDerived, type DeriveContext, type Outcome, type Term } from './context';
 import { decimalsAgainst, formatNumber } from '../util/format';
 import type { Kept } from '../util/small-store';
 
-/** Serum bicarbonate when the laboratory gave one, else the gas analyser's. */
+/**
+ * The bicarbonate of the anion gap: the laboratory's when it gave one, else the arterial gas
+ * analyser's, else a venous gas analyser's (the sodium and chloride of a venous gas come with a
+ * bicarbonate of the same sample, and a laboratory's bicarbonate is venous too).
+ */
 function bicarbonate(c: DeriveContext): Term | null {
-  return c.field('hco3_serum', 'HCO3') ?? c.field('hco3', 'HCO3');
+  return c.field('hco3_serum', 'HCO3') ?? c.field('hco3', 'HCO3') ?? c.field('hco3_venous', 'HCO3');
 }
 
 /**
- * A note for values that take the gas analyser's HCO3 (no laboratory bicarbonate is stated) when
- * that HCO3 does not fit the gas's pH and PaCO2 (PN402): the value is worked out, but is only as
+ * A note for values that take a gas analyser's HCO3 (no laboratory bicarbonate is stated) when
+ * that HCO3 does not fit the gas's pH and PCO2 (PN402): the value is worked out, but is only as
  * good as that HCO3. Checked directly, not through the classification, which itself reads the gap.
  */
 function gasHco3Doubted(c: DeriveContext, hco3: Term): string[] {
-  if (hco3.fieldId !== 'hco3') return [];
-  const ph = c.field('ph');
-  const paco2 = c.field('paco2');
-  if (!ph || !paco2) return [];
-  const fit = acidBaseConsistency(ph.value, paco2.value, hco3.value, c.writtenResolutionMmhg('paco2'));
-  return fit && !fit.consistent ? ['uses the gas HCO3, which does not fit the pH and PaCO2 (see PN402)'] : [];
+  const venous = hco3.fieldId === 'hco3_venous';
+  if (hco3.fieldId !== 'hco3' && !venous) return [];
+  const ph = c.field(venous ? 'ph_venous' : 'ph');
+  const pco2Id = venous ? 'pvco2' : 'paco2';
+  const pco2 = c.field(pco2Id);
+  if (!ph || !pco2) return [];
+  const fit = acidBaseConsistency(ph.value, pco2.value, hco3.value, c.writtenResolutionMmhg(pco2Id));
+  if (!fit || fit.consistent) return [];
+  return [venous ? 'uses the venous HCO3, which does not fit the venous pH and PvCO2 (see PN402)' : 'uses the gas HCO3, which does not fit the pH and PaCO2 (see PN402)'];
 }
 
 /** The acid–base classification of this timepoint's arterial gas (computed once per timepoint). */
@@ -161,7 +170,8 @@ export const deltaRatioDef = defineDerived({
     const hco3 = bicarbonate(c);
     if (!ag || !hco3) return c.missing([ag, c.lacking('anion_gap')], [hco3, 'hco3']);
     if (hco3.value >= 24) return { kind: 'na', reason: 'HCO3 is not below 24 mmol/L' };
-    if (ag.value <= 12) return { kind: 'na', reason: 'the anion gap is not raised' };
+    // Compared as the classification compares it: a gap of 12 on paper is 12, however it was summed.
+    if (sideOf(ag.value, ANION_GAP_UPPER_NORMAL_MMOL_L) <= 0) return { kind: 'na', reason: 'the anion gap is not raised' };
     const notes = gasHco3Doubted(c, hco3);
     return c.value(deltaRatio(ag.value, hco3.value), [ag, hco3], notes.length > 0 ? { notes } : undefined);
   },
@@ -215,7 +225,8 @@ function respiratoryExpected(chronicity: 'acute' | 'chronic') {
       const withheld = withheldForInconsistentGas(cls);
       if (withheld) return withheld;
       if (cls.primary !== 'respiratory-acidosis' && cls.primary !== 'respiratory-alkalosis') return { kind: 'na', reason: 'the primary disorder is not respiratory' };
-      const r = expectedHco3Respiratory(paco2.value, chronicity);
+      // Over the PaCO2s a value written in kPa stands for, as the classification reads it.
+      const r = expectedHco3Respiratory(paco2.value, chronicity, c.writtenResolutionMmhg('paco2'));
       return r ? c.value((r.low + r.high) / 2, [paco2], { range: r, notes: ['span of published coefficients, ± 2 mmol/L'], decimals: rangeDecimals(r, 0, c.field('hco3')?.value) }) : c.value(null, []);
     },
   });

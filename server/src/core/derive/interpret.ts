@@ -8,7 +8,7 @@ import { ANION_GAP_UPPER_NORMAL_MMOL_L, BERLIN_BAND_SEVERITY, HCO3_CENTRE_MMOL_L
 import { sideOf } from '../physiology/numeric';
 import { MMHG_PER_KPA } from '../physiology/units';
 import type { Settings } from '../settings';
-import { formatAgainst, formatNumber, formatShort, rangeAgainst, wordList } from '../util/format';
+import { decimalsAgainst, formatAgainst, formatNumber, formatShort, rangeAgainst, wordList } from '../util/format';
 import { KPA_DECIMALS, kpaFromMmhg, kpaNumber, showsKpa } from '../present';
 import { classification } from './acid-base';
 import { isAboveAlveolar } from './gas-exchange';
@@ -86,10 +86,40 @@ class GasWords {
     return this.kpa ? `${formatAgainst(kpaFromMmhg(mmHg), KPA_DECIMALS, kpaFromMmhg(value))} kPa` : `${formatAgainst(mmHg, 0, value)} mmHg`;
   }
 
-  /** A range with its unit, ends shown against `observed`: `28.5–32.5 mmHg`, or `3.8–4.3 kPa`. */
-  range(low: number, high: number, observed: number): string {
-    if (!this.kpa) return `${rangeAgainst(low, high, 0, observed)} mmHg`;
-    return `${rangeAgainst(kpaFromMmhg(low), kpaFromMmhg(high), KPA_DECIMALS, kpaFromMmhg(observed))} kPa`;
+  /**
+   * A range with its unit, ends shown against a measured `observed`: `28.5–32.5 mmHg`, or
+   * `3.8–4.3 kPa`. Each end takes the decimals that keep the value on its side, but an end the value
+   * is on at the resolution it was written with (`sideOf` gives 0) is shown as the value is written,
+   * not pushed apart from it (2.4 kPa on an end of 2.37 kPa: `1.8–2.4 kPa`, not `1.84–2.37 kPa`,
+   * which would leave a value read as within the range outside it).
+   */
+  range(low: number, high: number, observed: number, resolution = 0): string {
+    const d = this.rangeDecimals(low, high, observed, resolution);
+    if (!this.kpa) return `${formatNumber(low, d)}–${formatNumber(high, d)} mmHg`;
+    return `${formatNumber(kpaFromMmhg(low), d)}–${formatNumber(kpaFromMmhg(high), d)} kPa`;
+  }
+
+  /**
+   * A measured pressure read against the end of a range it is outside, with `range`'s ends as shown
+   * beside it: the value keeps its side of the end as shown, not only of the end as computed (18.5
+   * below 19.2 is not written `19 mmHg` below a range shown from `19`).
+   */
+  outside(mmHg: number, resolution: number, low: number, high: number, end: number): string {
+    const d = this.rangeDecimals(low, high, mmHg, resolution);
+    // The end as shown, in mmHg: what `value` compares with (in kPa it converts it back).
+    const shownEnd = this.kpa ? Number(kpaFromMmhg(end).toFixed(d)) * MMHG_PER_KPA : Number(end.toFixed(d));
+    return this.measured(mmHg, resolution, shownEnd);
+  }
+
+  /** The decimals of `range`'s ends (in the unit shown): see `range`. */
+  private rangeDecimals(low: number, high: number, observed: number, resolution: number): number {
+    const kpa = this.kpa;
+    const onLow = sideOf(observed, low, resolution) === 0;
+    const onHigh = sideOf(observed, high, resolution) === 0;
+    // In kPa, an end the value is on takes the decimals the value was written with.
+    const base = !kpa ? 0 : onLow || onHigh ? kpaDecimalsOf(resolution) : KPA_DECIMALS;
+    const at = (t: number) => (kpa ? kpaFromMmhg(t) : t);
+    return Math.max(decimalsAgainst(at(low), base, onLow ? NaN : at(observed)), decimalsAgainst(at(high), base, onHigh ? NaN : at(observed)));
   }
 }
 
@@ -471,7 +501,9 @@ function acidBaseReadingText(g: GasFacts): string {
   const gapCorrected = g.cls!.anionGap !== null && c.derivedValue('anion_gap_albumin_corrected') !== null;
   const ph = c.number('ph') ?? NaN;
   const hco3 = c.number('hco3') ?? NaN;
-  return acidBaseText(g.cls!, g.gas, { ph, paco2: g.paco2?.value ?? NaN, hco3, hypercapniaAboveMmhg: settings.hypercapniaAboveMmhg, co2Resolution: g.co2Resolution, gapCorrected });
+  // The anion gap takes the laboratory's bicarbonate where one is stated (derive/acid-base.ts).
+  const gapSerumHco3 = g.cls!.anionGap !== null ? c.number('hco3_serum') : null;
+  return acidBaseText(g.cls!, g.gas, { ph, paco2: g.paco2?.value ?? NaN, hco3, hypercapniaAboveMmhg: settings.hypercapniaAboveMmhg, co2Resolution: g.co2Resolution, gapCorrected, gapSerumHco3 });
 }
 
 /** The mechanism of hypoxaemia (a hypoxaemic gas only, so phrased at once). */
@@ -552,6 +584,12 @@ interface AcidBaseBasis {
   readonly hypercapniaAboveMmhg: number;
   /** The anion gap the classification used was corrected for albumin. */
   readonly gapCorrected: boolean;
+  /**
+   * The laboratory's bicarbonate (mmol/L) the anion gap and the delta ratio were worked out with, or
+   * null when they took the gas HCO3: the reading names it where it rests on it, since it is not the
+   * HCO3 the reading shows.
+   */
+  readonly gapSerumHco3: number | null;
 }
 
 /** The reference ranges the acid–base reading shows its numbers against. */
@@ -591,7 +629,10 @@ function acidBaseText(cls: AcidBaseClassification, gas: GasWords, basis: AcidBas
       // Both components beyond their reference ranges, each named with the limit it is beyond.
       const co2Limit = acid ? limits.paco2[1] : limits.paco2[0];
       const hco3Limit = acid ? limits.hco3[0] : limits.hco3[1];
-      text = `Consistent with a mixed metabolic and respiratory ${acid ? 'acidosis' : 'alkalosis'} (${phShown}; PaCO2 ${gas.measured(paco2, basis.co2Resolution, co2Limit)} ${acid ? 'above' : 'below'} ${gas.limit(co2Limit, paco2)} and HCO3 ${formatAgainst(hco3, HCO3_DECIMALS, hco3Limit)} mmol/L ${acid ? 'below' : 'above'} ${formatShort(hco3Limit)} mmol/L)`;
+      // The metabolic part of a mixed acidosis is named by its anion gap, as a metabolic acidosis is.
+      const metabolicPart = acid && gapKind ? `, the metabolic part${gapWords}` : '';
+      const gapDetail = acid && gapKind ? `; ${[gapShown, gapKind === 'normal-anion-gap' ? '' : ratioShown].filter(Boolean).join(', ')}` : '';
+      text = `Consistent with a mixed metabolic and respiratory ${acid ? 'acidosis' : 'alkalosis'}${metabolicPart} (${phShown}; PaCO2 ${gas.measured(paco2, basis.co2Resolution, co2Limit)} ${acid ? 'above' : 'below'} ${gas.limit(co2Limit, paco2)} and HCO3 ${formatAgainst(hco3, HCO3_DECIMALS, hco3Limit)} mmol/L ${acid ? 'below' : 'above'} ${formatShort(hco3Limit)} mmol/L${gapDetail})`;
       break;
     }
     default: {
@@ -607,10 +648,11 @@ function acidBaseText(cls: AcidBaseClassification, gas: GasWords, basis: AcidBas
   if (exp?.kind === 'respiratory-response') {
     // The ends of a range are shown with the decimals that keep the observed value outside or inside it, as it is.
     const o = exp.observed;
-    const range = gas.range(exp.range.low, exp.range.high, o);
+    const { low, high } = exp.range;
+    const range = gas.range(low, high, o, basis.co2Resolution);
     if (cls.compensation === 'appropriate') text += `, with the expected respiratory response (PaCO2 within the expected ${range})`;
-    else if (cls.additional.includes('respiratory-acidosis')) { text += `; PaCO2 ${gas.measured(o, basis.co2Resolution, exp.range.high)} is above the expected ${range}: consistent with an added respiratory acidosis`; named = 'respiratory-acidosis'; }
-    else if (cls.additional.includes('respiratory-alkalosis')) { text += `; PaCO2 ${gas.measured(o, basis.co2Resolution, exp.range.low)} is below the expected ${range}: consistent with an added respiratory alkalosis`; named = 'respiratory-alkalosis'; }
+    else if (cls.additional.includes('respiratory-acidosis')) { text += `; PaCO2 ${gas.outside(o, basis.co2Resolution, low, high, high)} is above the expected ${range}: consistent with an added respiratory acidosis`; named = 'respiratory-acidosis'; }
+    else if (cls.additional.includes('respiratory-alkalosis')) { text += `; PaCO2 ${gas.outside(o, basis.co2Resolution, low, high, low)} is below the expected ${range}: consistent with an added respiratory alkalosis`; named = 'respiratory-alkalosis'; }
   } else if (exp?.kind === 'metabolic-response') {
     const o = exp.observed;
     const acuteRange = `${rangeAgainst(exp.acute.low, exp.acute.high, 0, o)} mmol/L`;
@@ -633,7 +675,10 @@ function acidBaseText(cls: AcidBaseClassification, gas: GasWords, basis: AcidBas
     const why: string[] = [];
     if (gap?.high && extra.includes('metabolic-acidosis')) why.push(`${gapShown}, above ${ANION_GAP_UPPER_NORMAL_MMOL_L} mmol/L`);
     if (extra.includes('metabolic-alkalosis')) {
-      why.push(gap?.deltaRatio === null || gap?.deltaRatio === undefined ? `${extra.includes('metabolic-acidosis') ? 'with ' : `${gapShown} with `}an HCO3 that has not fallen below ${HCO3_CENTRE_MMOL_L} mmol/L` : `${ratioShown}, above 2`);
+      // The bicarbonate that has not fallen is the one the gap took: the laboratory's, when stated, is
+      // named with its number (the gas HCO3 shown above may well be below 24).
+      const notFallen = basis.gapSerumHco3 === null ? 'an HCO3 that' : `a serum HCO3 of ${formatAgainst(basis.gapSerumHco3, HCO3_DECIMALS, HCO3_CENTRE_MMOL_L)} mmol/L, which`;
+      why.push(gap?.deltaRatio === null || gap?.deltaRatio === undefined ? `${extra.includes('metabolic-acidosis') ? 'with ' : `${gapShown} with `}${notFallen} has not fallen below ${HCO3_CENTRE_MMOL_L} mmol/L` : `${ratioShown}, above 2`);
     }
     text += `; also consistent with an added ${extra.map((d) => DISORDER_WORDS[d]).join(' and ')}${why.length > 0 ? ` (${why.join(', ')})` : ''}`;
   }

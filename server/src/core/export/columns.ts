@@ -216,14 +216,14 @@ const WHERE_FROM: Readonly<Record<string, string>> = {
   barometric: `Barometric pressure (PB) the calculations use: as stated on a place line, else estimated from the altitude (the barometricModel setting), else ${SEA_LEVEL_MMHG} mmHg (sea level).`,
   // The derivation takes the albumin-corrected gap where there is one: the formula's {AG} alone would
   // send a reader recomputing the column to `anion_gap_mmol_L`, and to another number.
-  delta_ratio: 'Delta ratio (Δ ratio), derived: ({AG} − 12) ÷ (24 − {HCO3}), where {AG} is the anion gap corrected for albumin (`anion_gap_albumin_corrected_mmol_L`) when albumin is known, else the anion gap (`anion_gap_mmol_L`), and {HCO3} the serum bicarbonate (`hco3_serum_mmol_L`), else the gas HCO3 (`hco3_mmol_L`).',
+  delta_ratio: 'Delta ratio (Δ ratio), derived: ({AG} − 12) ÷ (24 − {HCO3}), where {AG} is the anion gap corrected for albumin (`anion_gap_albumin_corrected_mmol_L`) when albumin is known, else the anion gap (`anion_gap_mmol_L`), and {HCO3} the serum bicarbonate (`hco3_serum_mmol_L`), else the arterial gas HCO3 (`hco3_mmol_L`), else the venous gas HCO3 (`hco3_venous_mmol_L`).',
   minute_ventilation: 'Minute ventilation (VE), derived: {VT} × {RR} ÷ 1000, where {RR} is the measured rate (`rr_per_min`), else the set rate (`vent_rate_per_min`); empty in HFOV, whose set rate is an oscillation frequency.',
   mechanical_power: 'Mechanical power (simplified) (MP), derived: 0.098 × {RR} × {VT} ÷ 1000 × ({Ppeak} − ({Pplat} − {PEEP}) ÷ 2), where {RR} is the measured rate (`rr_per_min`), else the set rate (`vent_rate_per_min`); empty in HFOV, whose set rate is an oscillation frequency.',
   driving_pressure: 'Driving pressure (ΔP), derived: {Pplat} − {PEEP}; empty in HFOV, which gives no conventional breath with a plateau.',
   compliance_static: 'Static compliance (Cstat), derived: {VT} ÷ ({Pplat} − {PEEP}); empty in HFOV, which gives no conventional breath with a plateau.',
   compliance_dynamic: 'Dynamic compliance (Cdyn), derived: {VT} ÷ ({Ppeak} − {PEEP}); empty in HFOV, which gives no conventional breath with a peak.',
   cao2: 'Arterial oxygen content (CaO2), derived: {Hüfner} × {Hb} × {SaO2} ÷ 100 + 0.003 × {PaO2}, where {SaO2} is the SaO2 (`sao2_pct`), else the SpO2 (`spo2_pct`), and {Hüfner} the hufnerConstant setting (1.34 mL/g by default).',
-  anion_gap: 'Anion gap (AG), derived: {Na} − ({Cl} + {HCO3}), where {HCO3} is the serum bicarbonate (`hco3_serum_mmol_L`), else the gas HCO3 (`hco3_mmol_L`); without potassium.',
+  anion_gap: 'Anion gap (AG), derived: {Na} − ({Cl} + {HCO3}), where {HCO3} is the serum bicarbonate (`hco3_serum_mmol_L`), else the arterial gas HCO3 (`hco3_mmol_L`), else the venous gas HCO3 (`hco3_venous_mmol_L`); without potassium.',
 };
 
 function derivedColumns(def: (typeof DERIVED)[number], fieldIds: ReadonlySet<string>): Column[] {

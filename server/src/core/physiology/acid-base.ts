@@ -352,12 +352,22 @@ export function expectedPaco2MetabolicAlkalosis(hco3MmolL: number): RangeWithCen
  * published coefficients k (acute acidosis +1; chronic acidosis +3.5 to +5; acute alkalosis −2;
  * chronic alkalosis −4 to −5 per 10 mmHg), widened by ±2 mmol/L on both sides
  * (RESPIRATORY_RESPONSE_TOLERANCE_MMOL_L). Acidosis coefficients apply at PaCO2 ≥ 40, alkalosis
- * ones below. `null` unless PaCO2 > 0 and the chronicity is known.
+ * ones below. Given the resolution a PaCO2 in kPa was written with (`paco2ResolutionMmhg`, half a
+ * unit of its last decimal in mmHg), the range holds what every PaCO2 it stands for gives: the
+ * expected HCO3 rises with the PaCO2, so from the low end at the lowest to the high end at the
+ * highest (12.0 kPa stands for 89.6–90.4 mmHg, and holds the 27 mmol/L that 90 mmHg gives as its
+ * low end, as the same gas written in mmHg does). `null` unless PaCO2 > 0 and the chronicity is known.
  * Sources: `narins-emmett-1980`, `adrogue-madias-2010`.
  */
-export function expectedHco3Respiratory(paco2Mmhg: number, chronicity: RespiratoryChronicityInput): NumericRange | null {
+export function expectedHco3Respiratory(paco2Mmhg: number, chronicity: RespiratoryChronicityInput, paco2ResolutionMmhg = 0): NumericRange | null {
   if (!allFinite(paco2Mmhg) || paco2Mmhg <= 0) return null;
   if (chronicity !== 'acute' && chronicity !== 'chronic') return null;
+  if (allFinite(paco2ResolutionMmhg) && paco2ResolutionMmhg > 0) {
+    const lowest = expectedHco3Respiratory(Math.max(paco2Mmhg - paco2ResolutionMmhg, Number.MIN_VALUE), chronicity);
+    const highest = expectedHco3Respiratory(paco2Mmhg + paco2ResolutionMmhg, chronicity);
+    if (lowest === null || highest === null) return null;
+    return { low: lowest.low, high: highest.high };
+  }
   const tens = (paco2Mmhg - PACO2_CENTRE_MMHG) / 10;
   const c = RESPIRATORY_HCO3_COEFFICIENTS_PER_10_MMHG;
   const k =
@@ -440,8 +450,13 @@ function rangeAround(centre: number, halfWidth: number): RangeWithCentre | null 
   return { low, centre: mid, high };
 }
 
+/**
+ * Whether `value` lies in the closed `range`, its ends compared as `sideOf` compares a threshold: an
+ * end that is the value on paper is the value here (24 + 3.5 × 2.2 − 2 is 29.7, not the
+ * 29.700000000000003 floating point makes of it), so a measured HCO3 on an end is within the range.
+ */
 function within(value: number, range: NumericRange): boolean {
-  return value >= range.low && value <= range.high;
+  return sideOf(value, range.low) >= 0 && sideOf(value, range.high) <= 0;
 }
 
 /**
@@ -524,8 +539,8 @@ function compensationFor(primary: PrimaryAcidBaseFinding, paco2: number, hco3: n
     }
     case 'respiratory-acidosis':
     case 'respiratory-alkalosis': {
-      const acute = expectedHco3Respiratory(paco2, 'acute');
-      const chronic = expectedHco3Respiratory(paco2, 'chronic');
+      const acute = expectedHco3Respiratory(paco2, 'acute', paco2Resolution);
+      const chronic = expectedHco3Respiratory(paco2, 'chronic', paco2Resolution);
       if (acute === null || chronic === null) return NOT_APPLICABLE;
       const expected: ExpectedCompensation = {
         kind: 'metabolic-response',
@@ -541,10 +556,10 @@ function compensationFor(primary: PrimaryAcidBaseFinding, paco2: number, hco3: n
       if (inChronic) return { compensation: 'appropriate', expected, chronicity: 'chronic', additional: NO_DISORDERS };
       // The response raises HCO3 in respiratory acidosis and lowers it in respiratory alkalosis.
       const acidosis = primary === 'respiratory-acidosis';
-      if (hco3 > acute.high && hco3 > chronic.high) {
+      if (sideOf(hco3, acute.high) > 0 && sideOf(hco3, chronic.high) > 0) {
         return { compensation: acidosis ? 'excessive' : 'insufficient', expected, chronicity: null, additional: ONLY_METABOLIC_ALKALOSIS };
       }
-      if (hco3 < acute.low && hco3 < chronic.low) {
+      if (sideOf(hco3, acute.low) < 0 && sideOf(hco3, chronic.low) < 0) {
         return { compensation: acidosis ? 'insufficient' : 'excessive', expected, chronicity: null, additional: ONLY_METABOLIC_ACIDOSIS };
       }
       // Between the acute and the chronic range.
@@ -660,7 +675,8 @@ export function classifyAcidBase(input: AcidBaseInput): AcidBaseClassification |
 
   let anionGapFinding: AnionGapFinding | null = null;
   if (gap !== undefined) {
-    const high = gap > ANION_GAP_UPPER_NORMAL_MMOL_L;
+    // A gap of 12 on paper (135 − 100.1 − 22.9, 12.000000000000007 in floating point) is not high.
+    const high = sideOf(gap, ANION_GAP_UPPER_NORMAL_MMOL_L) > 0;
     const ratio = deltaRatio(gap, gapHco3);
     const band = ratio === null ? null : deltaRatioBand(ratio);
     const acidosisBefore = identifiedIn('metabolic-acidosis', fromPrimary, additional);

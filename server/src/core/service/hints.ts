@@ -340,20 +340,26 @@ function singleDisorder(text: string): (string | undefined)[] | null {
   return null;
 }
 
+/** The kind of metabolic acidosis a reading's first part names by its anion gap, for the label: `, high AG`. */
+function anionGapWords(first: string): string {
+  if (/high and normal anion-gap/i.test(first)) return ', mixed AG';
+  if (/high anion gap/i.test(first)) return ', high AG';
+  if (/normal anion gap/i.test(first)) return ', normal AG';
+  return '';
+}
+
 export function acidBaseLabel(text: string): string | null {
   const first = text.split(';')[0] ?? '';
   let label: string | null = null;
   const mixed = /mixed metabolic and respiratory (acidosis|alkalosis)/i.exec(first);
   const single = singleDisorder(first);
   if (/undetermined/i.test(first)) label = 'acid–base unclear';
-  else if (mixed) label = `mixed ${mixed[1]!.toLowerCase()}`;
+  else if (mixed) label = `mixed ${mixed[1]!.toLowerCase()}${anionGapWords(first)}`;
   else if (single) {
     label = disorder(single[3]!, single[4]!);
     if (single[2]) label += `, ${single[2].toLowerCase()}`;
     if (single[1]) label += ', compensated';
-    if (/high and normal anion-gap/i.test(first)) label += ', mixed AG';
-    else if (/high anion gap/i.test(first)) label += ', high AG';
-    else if (/normal anion gap/i.test(first)) label += ', normal AG';
+    label += anionGapWords(first);
     if (/between the acute and chronic/i.test(text)) label += ', acute on chronic?';
   } else if (/normal acid–base/i.test(first)) label = 'normal pH';
   if (label === null) return null;
