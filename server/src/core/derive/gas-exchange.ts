@@ -207,13 +207,15 @@ export const pfRatioAltitude = defineDerived({
   source: SOURCES['berlin-2012'],
   anchors: ['pao2'],
   compute(c) {
-    const pf = c.derived('pf_ratio', 'P/F');
     const pb = c.derived('barometric', 'PB');
+    // Near sea level there is no adjustment, whatever the P/F: what the P/F lacks (an FiO2) is not
+    // asked for in its name, since adding it would give a P/F and still no adjusted one.
+    if (pb && pb.value >= PF_ADJUSTED_BELOW_MMHG) return NEAR_SEA_LEVEL;
+    const pf = c.derived('pf_ratio', 'P/F');
     // A P/F withheld (PN401) withholds its adjustment, where there would be one (below 740 mmHg).
     const withheld = pf ? null : c.withheldFrom('pf_ratio');
-    if (withheld) return !pb ? c.missing() : pb.value >= PF_ADJUSTED_BELOW_MMHG ? NEAR_SEA_LEVEL : withheld;
+    if (withheld) return pb ? withheld : c.missing();
     if (!pf || !pb) return c.missing([pf, c.lacking('pf_ratio')]);
-    if (pb.value >= PF_ADJUSTED_BELOW_MMHG) return NEAR_SEA_LEVEL;
     return c.value(pfRatioAltitudeAdjusted(pf.value, pb.value), [pf, pb]);
   },
 });
