@@ -18,7 +18,7 @@ import { birthDate, calendarDate, emailAddress, phoneNumber, possibleName, posta
 import { timeGoesBack } from './time-order';
 import { rateBelowSet, setRateZero } from './rate-order';
 import { amplitudeOutsideHfov } from './oscillation';
-import { flowOnRoomAirCheck } from './room-air-flow';
+import { fio2OnRoomAirCheck, flowOnRoomAirCheck } from './room-air-flow';
 import { therapyOverlap } from './therapy-overlap';
 import { unusualBlank } from './unusual-blank';
 import { fio2OutOfRange, impossibleValue, saturationAbove100, unusualValue } from './value-bounds';
@@ -50,6 +50,7 @@ export const CHECKS: readonly CheckDef[] = validateCheckList([
   therapyOverlap,
   setRateZero,
   amplitudeOutsideHfov,
+  fio2OnRoomAirCheck,
   pao2AboveAlveolar,
   gasInconsistent,
   tidalVolumeHigh,
