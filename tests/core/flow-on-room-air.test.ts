@@ -84,3 +84,13 @@ describe('an FiO2 above 0.21 on room air (PN314)', () => {
     expect(derivedAt(`${text}, fio2 0.21`, 'pf_ratio').value?.value).toBeCloseTo(102 / 0.21, 6);
   });
 });
+
+describe('an oxygen line without a device or an FiO2', () => {
+  it('asks for the FiO2 on that line, not for an oxygen line it already has', () => {
+    // `oxygen flow 2`: oxygen is given, by a device not named; P/F = PaO2 ÷ FiO2 needs the FiO2.
+    expect(derivedAt(`@ 08:00\noxygen flow 2\n${gas}`, 'pf_ratio').missing?.needs).toEqual(['fio2 (on the oxygen line)']);
+    expect(derivedAt(`@ 08:00\noxygen epap 6\n${gas}`, 'pf_ratio').missing?.needs).toEqual(['fio2 (on the oxygen line)']);
+    // Without any oxygen or vent line, either will do.
+    expect(derivedAt(`@ 08:00\n${gas}`, 'pf_ratio').missing?.needs).toEqual(['fio2 (or an oxygen line)']);
+  });
+});

@@ -315,6 +315,8 @@ export class DeriveContext {
     if (device && device.word !== 'room air') return `fio2 (on the ${device.word} line)`;
     // On a ventilator (a vent line ends the oxygen line before it), the FiO2 goes on the vent line.
     if (!device && VENT_SETTINGS.some((id) => this.timepoint.values.originOf(id) !== null)) return 'fio2 (on the vent line)';
+    // An oxygen line without a device (`oxygen flow 2`): there is one, and the FiO2 goes on it.
+    if (!device && OXYGEN_SETTINGS.some((id) => this.timepoint.values.originOf(id) !== null)) return 'fio2 (on the oxygen line)';
     return 'fio2 (or an oxygen line)';
   }
 
@@ -439,6 +441,8 @@ function usesCarried(terms: readonly Term[], c: DeriveContext): boolean {
 
 /** Settings that only a vent line states: one in force means the patient is on the ventilator. */
 const VENT_SETTINGS: readonly string[] = ['mode', 'vt', 'vent_rate', 'peep', 'pressure_support', 'amplitude'];
+/** Settings of an oxygen line besides its device and FiO2: one in force means an oxygen line is. */
+const OXYGEN_SETTINGS: readonly string[] = ['o2_flow', 'ipap', 'epap', 'cpap_level'];
 
 const NOT_IN_DOMAIN: Outcome = { kind: 'na', reason: 'the inputs are outside the range where the formula holds' };
 const IN_HFOV: Outcome = { kind: 'na', reason: 'not worked out in HFOV: its rate is an oscillation frequency, and tidal volume × rate is not its ventilation' };
