@@ -13,7 +13,7 @@ import { gasInconsistent } from './gas-consistency';
 import { internalError } from './internal';
 import { acidBaseReading, oxygenationReading, respiratoryFailureReading, ventilationReading } from './interpretations';
 import { drivingPressureHigh, plateauHigh, tidalVolumeHigh } from './ventilation-limits';
-import { peepAbovePlateau, plateauAbovePeak, systolicBelowDiastolic } from './pressure-order';
+import { epapAboveIpap, peepAbovePlateau, plateauAbovePeak, systolicBelowDiastolic } from './pressure-order';
 import { birthDate, calendarDate, emailAddress, phoneNumber, possibleName, postalCode, recordNumber } from './privacy';
 import { timeGoesBack } from './time-order';
 import { rateBelowSet, setRateZero } from './rate-order';
@@ -51,6 +51,7 @@ export const CHECKS: readonly CheckDef[] = validateCheckList([
   setRateZero,
   amplitudeOutsideHfov,
   fio2OnRoomAirCheck,
+  epapAboveIpap,
   pao2AboveAlveolar,
   gasInconsistent,
   tidalVolumeHigh,
