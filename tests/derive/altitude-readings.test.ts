@@ -73,6 +73,12 @@ describe('P/F adjusted for altitude: from 740 mmHg down', () => {
     expect(notApplied(741)?.reason).toBe('barometric pressure is 740 mmHg or more, close to sea level (the adjustment starts below 740 mmHg)');
   });
 
+  it('in a hyperbaric chamber (PB 2,280 mmHg, 3 atmospheres) it is not applied either, and the reason does not call it close to sea level', () => {
+    expect(notApplied(2280)?.reason).toBe("barometric pressure is above sea level's (760 mmHg): the adjustment is for altitude, below 740 mmHg");
+    // Within the weather's 20 mmHg of sea level it is close to sea level (common practice, no source).
+    expect(notApplied(780)?.reason).toMatch(/close to sea level/);
+  });
+
   it('at 740 mmHg, on the threshold, it is still not applied', () => {
     expect(notApplied(740)).toBeDefined();
     expect(notApplied(739)).toBeUndefined();

@@ -210,7 +210,7 @@ export const pfRatioAltitude = defineDerived({
     const pb = c.derived('barometric', 'PB');
     // Near sea level there is no adjustment, whatever the P/F: what the P/F lacks (an FiO2) is not
     // asked for in its name, since adding it would give a P/F and still no adjusted one.
-    if (pb && pb.value >= PF_ADJUSTED_BELOW_MMHG) return NEAR_SEA_LEVEL;
+    if (pb && pb.value >= PF_ADJUSTED_BELOW_MMHG) return pb.value > SEA_LEVEL_MMHG + 20 ? ABOVE_SEA_LEVEL : NEAR_SEA_LEVEL;
     const pf = c.derived('pf_ratio', 'P/F');
     // A P/F withheld (PN401) withholds its adjustment, where there would be one (below 740 mmHg).
     const withheld = pf ? null : c.withheldFrom('pf_ratio');
@@ -231,6 +231,12 @@ export const PF_ADJUSTED_BELOW_MMHG = SEA_LEVEL_MMHG - 20;
 
 /** Most notes are near sea level: one outcome serves every gas. */
 const NEAR_SEA_LEVEL: Outcome = { kind: 'na', reason: `barometric pressure is ${PF_ADJUSTED_BELOW_MMHG} mmHg or more, close to sea level (the adjustment starts below ${PF_ADJUSTED_BELOW_MMHG} mmHg)` };
+
+/**
+ * Above sea level's pressure and the 20 mmHg the weather moves it (a hyperbaric chamber, a place
+ * below sea level): not "close to sea level", and the adjustment is for altitude only.
+ */
+const ABOVE_SEA_LEVEL: Outcome = { kind: 'na', reason: `barometric pressure is above sea level's (${SEA_LEVEL_MMHG} mmHg): the adjustment is for altitude, below ${PF_ADJUSTED_BELOW_MMHG} mmHg` };
 
 export const sfRatioDef = defineDerived({
   id: 'sf_ratio',
