@@ -42,29 +42,29 @@ describe('an oxygen flow on room air (PN310)', () => {
   });
 });
 
-// PN314: an FiO2 above 0.21 on a room-air line. Room air is an FiO2 of 0.21 (common practice, no
+// PN316: an FiO2 above 0.21 on a room-air line. Room air is an FiO2 of 0.21 (common practice, no
 // source), so the device or the FiO2 is wrong; neither is used until the line is mended.
-const pn314 = (text: string) => checkNote(text).findings.filter((f) => f.code === 'PN314');
+const pn316 = (text: string) => checkNote(text).findings.filter((f) => f.code === 'PN316');
 
-describe('an FiO2 above 0.21 on room air (PN314)', () => {
+describe('an FiO2 above 0.21 on room air (PN316)', () => {
   it('fires on the FiO2, as a fraction or a percentage', () => {
-    const f = pn314(`@ 08:00\noxygen room air, fio2 0.4\n${gas}`);
+    const f = pn316(`@ 08:00\noxygen room air, fio2 0.4\n${gas}`);
     expect(f).toHaveLength(1);
     expect(f[0]?.severity).toBe('warning');
     expect(f[0]?.message).toBe('Room air with FiO2 0.40: room air is an FiO2 of 0.21. Name the device that gives this FiO2, or remove the FiO2; neither FiO2 is used until then.');
     expect(f[0]?.range).toEqual({ start: { line: 1, character: 17 }, end: { line: 1, character: 25 } });
-    expect(pn314('@ 08:00\noxygen ra fio2 35 %')).toHaveLength(1);
+    expect(pn316('@ 08:00\noxygen ra fio2 35 %')).toHaveLength(1);
   });
 
   it('fires where the line is written, not at each timepoint it carries to, and also beside a sampling FiO2', () => {
-    expect(pn314('@ 08:00\noxygen room air, fio2 0.4\n@ 09:00\nvitals hr 80').map((f) => f.range.start.line)).toEqual([1]);
-    expect(pn314('@ 08:00\noxygen room air, fio2 0.4\nabg 7.40/40/80/24, fio2 0.21').map((f) => f.range.start.line)).toEqual([1]);
+    expect(pn316('@ 08:00\noxygen room air, fio2 0.4\n@ 09:00\nvitals hr 80').map((f) => f.range.start.line)).toEqual([1]);
+    expect(pn316('@ 08:00\noxygen room air, fio2 0.4\nabg 7.40/40/80/24, fio2 0.21').map((f) => f.range.start.line)).toEqual([1]);
   });
 
   it('stays silent for the FiO2 of air written out, and for an FiO2 on a device that gives oxygen', () => {
-    expect(pn314('@ 08:00\noxygen room air, fio2 0.21')).toEqual([]);
-    expect(pn314('@ 08:00\noxygen room air, fio2 21 %')).toEqual([]);
-    expect(pn314('@ 08:00\noxygen venturi 8, fio2 0.4')).toEqual([]);
+    expect(pn316('@ 08:00\noxygen room air, fio2 0.21')).toEqual([]);
+    expect(pn316('@ 08:00\noxygen room air, fio2 21 %')).toEqual([]);
+    expect(pn316('@ 08:00\noxygen venturi 8, fio2 0.4')).toEqual([]);
   });
 
   it('uses neither FiO2 there: P/F, the A–a gradient and the oxygen readings wait for the line to be mended', () => {

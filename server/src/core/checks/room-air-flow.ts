@@ -2,7 +2,7 @@
  * An oxygen flow written on a room-air line (`oxygen room air 2`): room air is breathing without
  * added oxygen, so a flow says oxygen is given through some device. Which one the note does not
  * say, so FiO2 is not taken as 0.21 there (see `DeriveContext.fio2`). Likewise an FiO2 above 0.21
- * written on a room-air line (`oxygen room air, fio2 0.4`, PN314): neither FiO2 is used there.
+ * written on a room-air line (`oxygen room air, fio2 0.4`, PN316): neither FiO2 is used there.
  */
 import { toRange } from '../syntax/tree';
 import { formatNumber, formatShort } from '../util/format';
@@ -36,7 +36,7 @@ export const flowOnRoomAirCheck = defineCheck({
 });
 
 export const fio2OnRoomAirCheck = defineCheck({
-  code: 'PN314',
+  code: 'PN316',
   alias: 'fio2-on-room-air',
   title: 'FiO2 above 0.21 on room air',
   severity: 'warning',

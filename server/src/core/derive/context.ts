@@ -56,7 +56,7 @@ const ROOM_AIR_FIO2 = 0.21;
 /**
  * The FiO2 in force when it was written on a room-air line and is above the 0.21 of air
  * (`oxygen room air, fio2 0.4`); null otherwise. Room air is an FiO2 of 0.21, so the device or the
- * FiO2 is wrong (PN314), and neither is used: the FiO2 written would read a patient on air as on
+ * FiO2 is wrong (PN316), and neither is used: the FiO2 written would read a patient on air as on
  * oxygen, and 0.21 would pass over an FiO2 that may be the true one.
  */
 export function fio2OnRoomAir(values: ValuesInForce): InputValue | null {
@@ -286,7 +286,7 @@ export class DeriveContext {
    */
   fio2(): Term | null {
     const stated = this.field('fio2', 'FiO2');
-    // An FiO2 above 0.21 on a room-air line (PN314): neither it nor the 0.21 of air is used.
+    // An FiO2 above 0.21 on a room-air line (PN316): neither it nor the 0.21 of air is used.
     if (stated) return stated.value > ROOM_AIR_FIO2 && isRoomAirContradiction(this.input('fio2')!, this.timepoint.values) ? null : stated;
     // Several formulas of a gas read the FiO2: the room-air term is worked out once.
     if (this.airFio2 === undefined) this.airFio2 = this.roomAirFio2();
