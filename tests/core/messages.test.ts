@@ -24,6 +24,16 @@ describe('a number in a message carries its unit', () => {
     expect(messages('@ 08:00\nvent plateau 28, peak 25', 'PN304')).toEqual(['Plateau pressure 28 cmH2O is above the peak pressure 25 cmH2O; were they swapped?']);
   });
 
+  it('non-invasive pressures out of order (EPAP above IPAP) name both in cmH2O; equal ones or in order are fine', () => {
+    // Bilevel ventilation: IPAP = EPAP + pressure support, so IPAP ≥ EPAP (common practice, no source).
+    expect(messages('@ 08:00\noxygen niv ipap 6, epap 14, fio2 0.4', 'PN315')).toEqual(['EPAP 14 cmH2O is above the IPAP 6 cmH2O; the inspiratory pressure is the higher of the two. Were they swapped?']);
+    expect(messages('@ 08:00\noxygen niv ipap 14, epap 6, fio2 0.4', 'PN315')).toEqual([]);
+    expect(messages('@ 08:00\noxygen niv ipap 8, epap 8, fio2 0.4', 'PN315')).toEqual([]);
+    // Reported once, where the line is written, not at the timepoints it carries to.
+    const once = checkNote('@ 08:00\noxygen niv ipap 5, epap 6, fio2 0.4\n@ 09:00\nvitals hr 80').findings.filter((f) => f.code === 'PN315');
+    expect(once.map((f) => f.range.start.line)).toEqual([1]);
+  });
+
   it('a pressure just above the other keeps the decimals that tell them apart', () => {
     expect(messages('@ 08:00\nvent peep 10.004, plateau 10', 'PN303')).toEqual(['PEEP 10.004 cmH2O is above the plateau pressure 10 cmH2O; plateau pressure includes PEEP.']);
   });

@@ -73,6 +73,12 @@ describe('P/F adjusted for altitude: from 740 mmHg down', () => {
     expect(notApplied(741)?.reason).toBe('barometric pressure is 740 mmHg or more, close to sea level (the adjustment starts below 740 mmHg)');
   });
 
+  it('in a hyperbaric chamber (PB 2,280 mmHg, 3 atmospheres) it is not applied either, and the reason does not call it close to sea level', () => {
+    expect(notApplied(2280)?.reason).toBe("barometric pressure is above sea level's (760 mmHg): the adjustment is for altitude, below 740 mmHg");
+    // Within the weather's 20 mmHg of sea level it is close to sea level (common practice, no source).
+    expect(notApplied(780)?.reason).toMatch(/close to sea level/);
+  });
+
   it('at 740 mmHg, on the threshold, it is still not applied', () => {
     expect(notApplied(740)).toBeDefined();
     expect(notApplied(739)).toBeUndefined();
@@ -82,5 +88,25 @@ describe('P/F adjusted for altitude: from 740 mmHg down', () => {
     expect(derived(vent(739), 'pf_ratio_altitude_adjusted').value).toBeCloseTo(218.78, 1);
     expect(readings(vent(739))['oxygenation-band']).toMatch(/219/);
     expect(readings(vent(741))['oxygenation-band']).toMatch(/^P\/F 225 mmHg/);
+  });
+});
+
+describe('what a note near sea level is asked to add', () => {
+  // The adjustment is not applied from 740 mmHg up (above), so adding an FiO2 there gives a P/F and
+  // no adjusted P/F: the request for an FiO2 must not promise one. At 2,000 m (West's model
+  // atmosphere, PB ≈ 604 mmHg: West JB, J Appl Physiol 1996, from memory) it does give one.
+  const cannula = (place: string) => `${place}@ 08:00\noxygen cannula 2\nabg 7.40/40/80/24`;
+  const asked = (text: string) => derivation(text).missing.filter((m) => m.id === 'pf_ratio_altitude_adjusted');
+
+  it('at sea level (no place, or 760 mmHg) the request for fio2 names P/F but not P/F × PB/760', () => {
+    for (const text of [cannula(''), cannula('place barometric 760 mmHg\n')]) {
+      expect(asked(text)).toEqual([]);
+      expect(derivation(text).missing.find((m) => m.id === 'pf_ratio')?.needs).toEqual(["fio2 (a cannula's FiO2 is only an estimate)"]);
+      expect(derivation(text).notApplicable.find((n) => n.id === 'pf_ratio_altitude_adjusted')?.reason).toMatch(/close to sea level/);
+    }
+  });
+
+  it('at 2,000 m it names the adjusted P/F too', () => {
+    expect(asked(cannula('place altitude 2000 m\n'))[0]?.needs).toEqual(["fio2 (a cannula's FiO2 is only an estimate)"]);
   });
 });

@@ -87,3 +87,31 @@ describe('a PaO2 above the alveolar PO2 the FiO2 allows (PN401)', () => {
     expect(readings('@ 08:00\noxygen room air\nabg 7.40/40/100/24').oxygenation).toBe('PaO2 100 mmHg: consistent with adequate arterial oxygenation.');
   });
 });
+
+describe('a PaO2 within rounding above the alveolar PO2', () => {
+  // On air at sea level with PaCO2 40: PAO2 = 0.21 × (760 − 47) − 40 ÷ 0.8 = 99.7 mmHg (simplified
+  // alveolar gas equation: Fenn, Rahn & Otis 1946; Riley & Cournand 1949 — from memory). A PaO2 of
+  // 102 is 2.3 mmHg above it: within the 5 mmHg allowed for rounding, so the gradient shows as 0
+  // (grammar/README.md), and the a/A ratio, PaO2 ÷ PAO2 (Gilbert & Keighley 1974, from memory),
+  // must say the same thing: 1, not the 1.02 that PaO2 and PAO2 would be no gradient against.
+  const note = 'patient age 20 y\n@ 08:00\noxygen room air\nabg 7.40/40/102/24';
+
+  it('gives an a/A ratio of 1, as the gradient of 0 beside it says, with the reason', () => {
+    expect(0.21 * (760 - 47) - 40 / 0.8).toBeCloseTo(99.73, 2);
+    expect(derived(note, 'aa_gradient').value).toBe(0);
+    const ratio = derived(note, 'a_to_A_ratio');
+    expect(ratio.value).toBe(1);
+    expect(ratio.notes.join(' ')).toMatch(/within rounding of the alveolar PO2/);
+  });
+
+  it('on the summit of Everest too (PB 253 mmHg, West et al. 1983 — from memory): PAO2 0.21 × 206 − 12 ÷ 0.8 = 28.3, PaO2 30', () => {
+    const summit = 'patient age 35 y\nplace barometric 253 mmHg\n@ 08:00\noxygen room air\nabg 7.70/12/30/14';
+    expect(0.21 * (253 - 47) - 12 / 0.8).toBeCloseTo(28.26, 2);
+    expect(derived(summit, 'aa_gradient').value).toBe(0);
+    expect(derived(summit, 'a_to_A_ratio').value).toBe(1);
+  });
+
+  it('leaves a PaO2 below the alveolar PO2 as it is: 90 ÷ 99.7 = 0.90', () => {
+    expect(derived(note.replace('/102/', '/90/'), 'a_to_A_ratio').value).toBeCloseTo(90 / (0.21 * 713 - 50), 6);
+  });
+});

@@ -1,9 +1,9 @@
 /**
- * Pressures that must come in order: PEEP ≤ plateau ≤ peak on the ventilator, and
- * diastolic ≤ systolic blood pressure. Ventilator pressures compare the values in force at a
- * timepoint (one may be carried), and report only where one of the pair was stated there. PEEP
- * and peak are compared only where no plateau is in force: with one, a PEEP above the peak puts
- * one of the other two pairs out of order, and that one is reported.
+ * Pressures that must come in order: PEEP ≤ plateau ≤ peak on the ventilator, EPAP ≤ IPAP on
+ * non-invasive ventilation, and diastolic ≤ systolic blood pressure. Ventilator pressures compare
+ * the values in force at a timepoint (one may be carried), and report only where one of the pair
+ * was stated there. PEEP and peak are compared only where no plateau is in force: with one, a PEEP
+ * above the peak puts one of the other two pairs out of order, and that one is reported.
  */
 import type { InputValue, Timepoint } from '../analysis/model';
 import { toRange } from '../syntax/tree';
@@ -95,6 +95,25 @@ export const peepAbovePeak = defineCheck({
     // A plateau in force is compared with both (PN303, PN304); asked without building the value.
     if (ctx.timepoint.values.numberOf('plateau') !== null) return;
     orderCheck(ctx, 'peep', 'peak', peepAbovePeakMessage);
+  },
+});
+
+const epapAboveIpapMessage = (low: number, high: number): string => `EPAP ${above(low, high)} cmH2O is above the IPAP ${above(high, low)} cmH2O; the inspiratory pressure is the higher of the two. Were they swapped?`;
+
+export const epapAboveIpap = defineCheck({
+  code: 'PN315',
+  alias: 'epap-above-ipap',
+  title: 'EPAP above IPAP',
+  severity: 'error',
+  tags: ['plausibility'],
+  doc: {
+    fires: 'On non-invasive ventilation (an oxygen line with `ipap` and `epap`), the EPAP is higher than the IPAP in force at the same timepoint. Bilevel ventilation raises the pressure from EPAP to IPAP on each breath (IPAP = EPAP + the pressure support), so IPAP cannot be the lower one; equal pressures are continuous pressure, as CPAP. EPAP counts as PEEP for the oxygenation band, so swapped values also give the band a wrong PEEP.',
+    example: 'oxygen niv ipap 6, epap 14, fio2 0.4',
+    fix: 'Check whether the two were swapped (`niv ipap 14, epap 6`).',
+  },
+  source: 'non-invasive ventilation: the inspiratory positive airway pressure is set above the expiratory one, their difference being the pressure support (common practice, no source)',
+  runTimepoint(ctx) {
+    orderCheck(ctx, 'epap', 'ipap', epapAboveIpapMessage);
   },
 });
 

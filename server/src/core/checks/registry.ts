@@ -13,12 +13,12 @@ import { gasInconsistent } from './gas-consistency';
 import { internalError } from './internal';
 import { acidBaseReading, oxygenationReading, respiratoryFailureReading, ventilationReading } from './interpretations';
 import { drivingPressureHigh, plateauHigh, tidalVolumeHigh } from './ventilation-limits';
-import { peepAbovePeak, peepAbovePlateau, plateauAbovePeak, systolicBelowDiastolic } from './pressure-order';
+import { epapAboveIpap, peepAbovePeak, peepAbovePlateau, plateauAbovePeak, systolicBelowDiastolic } from './pressure-order';
 import { birthDate, calendarDate, emailAddress, phoneNumber, possibleName, postalCode, recordNumber } from './privacy';
 import { timeGoesBack } from './time-order';
 import { rateBelowSet, setRateZero } from './rate-order';
 import { amplitudeOutsideHfov } from './oscillation';
-import { flowOnRoomAirCheck } from './room-air-flow';
+import { fio2OnRoomAirCheck, flowOnRoomAirCheck } from './room-air-flow';
 import { therapyOverlap } from './therapy-overlap';
 import { unusualBlank } from './unusual-blank';
 import { fio2OutOfRange, impossibleValue, saturationAbove100, unusualValue } from './value-bounds';
@@ -51,6 +51,8 @@ export const CHECKS: readonly CheckDef[] = validateCheckList([
   setRateZero,
   amplitudeOutsideHfov,
   peepAbovePeak,
+  epapAboveIpap,
+  fio2OnRoomAirCheck,
   pao2AboveAlveolar,
   gasInconsistent,
   tidalVolumeHigh,

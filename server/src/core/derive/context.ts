@@ -50,6 +50,27 @@ export function flowOnRoomAir(values: ValuesInForce): number | null {
   return values.get('device')?.stated.word === 'room air' ? flow : null;
 }
 
+/** The FiO2 of air (common practice; 0.2093 in some texts). */
+const ROOM_AIR_FIO2 = 0.21;
+
+/**
+ * The FiO2 in force when it was written on a room-air line and is above the 0.21 of air
+ * (`oxygen room air, fio2 0.4`); null otherwise. Room air is an FiO2 of 0.21, so the device or the
+ * FiO2 is wrong (PN316), and neither is used: the FiO2 written would read a patient on air as on
+ * oxygen, and 0.21 would pass over an FiO2 that may be the true one.
+ */
+export function fio2OnRoomAir(values: ValuesInForce): InputValue | null {
+  const fio2 = values.get('fio2');
+  return fio2 !== undefined && isRoomAirContradiction(fio2, values) ? fio2 : null;
+}
+
+/** Whether an FiO2 is one of an oxygen line whose device is room air, and above 0.21 (beyond rounding). */
+export function isRoomAirContradiction(fio2: InputValue, values: ValuesInForce): boolean {
+  const stated = fio2.stated;
+  if (stated.section !== 'oxygen' || !stated.usable || stated.value === null || !(stated.value > ROOM_AIR_FIO2 + 1e-9)) return false;
+  return values.get('device')?.stated.word === 'room air';
+}
+
 export type Outcome =
   // The extras by reference: most values give none or one shared object (no copy per value).
   | { readonly kind: 'value'; readonly value: number; readonly terms: readonly Term[]; readonly extras: ValueExtras }
@@ -265,7 +286,8 @@ export class DeriveContext {
    */
   fio2(): Term | null {
     const stated = this.field('fio2', 'FiO2');
-    if (stated) return stated;
+    // An FiO2 above 0.21 on a room-air line (PN316): neither it nor the 0.21 of air is used.
+    if (stated) return stated.value > ROOM_AIR_FIO2 && isRoomAirContradiction(this.input('fio2')!, this.timepoint.values) ? null : stated;
     // Several formulas of a gas read the FiO2: the room-air term is worked out once.
     if (this.airFio2 === undefined) this.airFio2 = this.roomAirFio2();
     return this.airFio2;
@@ -287,11 +309,14 @@ export class DeriveContext {
     if (written && !written.stated.usable) return `a usable fio2 (the one on line ${written.stated.line + 1} is not used: see its finding)`;
     const device = this.word('device');
     if (device?.word === 'room air' && flowOnRoomAir(this.timepoint.values) !== null) return 'the oxygen device (room air takes no oxygen flow)';
+    if (written && device?.word === 'room air' && isRoomAirContradiction(written, this.timepoint.values)) return 'the oxygen device, or an FiO2 of 0.21 (room air is no added oxygen)';
     if (device && (device.word === 'cannula' || device.word === 'mask')) return `fio2 (a ${device.word}'s FiO2 is only an estimate)`;
     // An oxygen line is there, without its FiO2 (`oxygen venturi 8`): the FiO2 goes on that line.
     if (device && device.word !== 'room air') return `fio2 (on the ${device.word} line)`;
     // On a ventilator (a vent line ends the oxygen line before it), the FiO2 goes on the vent line.
     if (!device && VENT_SETTINGS.some((id) => this.timepoint.values.originOf(id) !== null)) return 'fio2 (on the vent line)';
+    // An oxygen line without a device (`oxygen flow 2`): there is one, and the FiO2 goes on it.
+    if (!device && OXYGEN_SETTINGS.some((id) => this.timepoint.values.originOf(id) !== null)) return 'fio2 (on the oxygen line)';
     return 'fio2 (or an oxygen line)';
   }
 
@@ -420,6 +445,8 @@ function usesCarried(terms: readonly Term[], c: DeriveContext): boolean {
 
 /** Settings that only a vent line states: one in force means the patient is on the ventilator. */
 const VENT_SETTINGS: readonly string[] = ['mode', 'vt', 'vent_rate', 'peep', 'pressure_support', 'amplitude'];
+/** Settings of an oxygen line besides its device and FiO2: one in force means an oxygen line is. */
+const OXYGEN_SETTINGS: readonly string[] = ['o2_flow', 'ipap', 'epap', 'cpap_level'];
 
 const NOT_IN_DOMAIN: Outcome = { kind: 'na', reason: 'the inputs are outside the range where the formula holds' };
 const IN_HFOV: Outcome = { kind: 'na', reason: 'not worked out in HFOV: its rate is an oscillation frequency, and tidal volume × rate is not its ventilation' };

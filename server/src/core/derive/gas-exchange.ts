@@ -168,9 +168,15 @@ export const aToARatio = defineDerived({
     const pA = c.derived('pao2_alveolar', 'PAO2');
     if (!pa || !pA) return c.missing([pa, 'po2'], [pA, c.lacking('pao2_alveolar')]);
     if (isAboveAlveolar(pa.value, pA.value)) return ABOVE_ALVEOLAR;
+    // Within rounding above the alveolar PO2 the gradient shows as 0, and the ratio says the same:
+    // 1, not the 1.06 that no blood can reach (a gradient of 0 beside a ratio above 1 would contradict it).
+    if (pa.value > pA.value && pA.value > 0) return c.value(1, [pa, pA], WITHIN_ROUNDING_RATIO);
     return c.value(arterialAlveolarRatio(pa.value, pA.value), [pa, pA]);
   },
 });
+
+/** The a/A ratio of a PaO2 within rounding above the alveolar PO2: one object for every timepoint. */
+const WITHIN_ROUNDING_RATIO: ValueExtras = { notes: ['PaO2 within rounding of the alveolar PO2: ratio shown as 1'] };
 
 export const pfRatioDef = defineDerived({
   id: 'pf_ratio',
@@ -201,13 +207,15 @@ export const pfRatioAltitude = defineDerived({
   source: SOURCES['berlin-2012'],
   anchors: ['pao2'],
   compute(c) {
-    const pf = c.derived('pf_ratio', 'P/F');
     const pb = c.derived('barometric', 'PB');
+    // Near sea level there is no adjustment, whatever the P/F: what the P/F lacks (an FiO2) is not
+    // asked for in its name, since adding it would give a P/F and still no adjusted one.
+    if (pb && pb.value >= PF_ADJUSTED_BELOW_MMHG) return pb.value > SEA_LEVEL_MMHG + 20 ? ABOVE_SEA_LEVEL : NEAR_SEA_LEVEL;
+    const pf = c.derived('pf_ratio', 'P/F');
     // A P/F withheld (PN401) withholds its adjustment, where there would be one (below 740 mmHg).
     const withheld = pf ? null : c.withheldFrom('pf_ratio');
-    if (withheld) return !pb ? c.missing() : pb.value >= PF_ADJUSTED_BELOW_MMHG ? NEAR_SEA_LEVEL : withheld;
+    if (withheld) return pb ? withheld : c.missing();
     if (!pf || !pb) return c.missing([pf, c.lacking('pf_ratio')]);
-    if (pb.value >= PF_ADJUSTED_BELOW_MMHG) return NEAR_SEA_LEVEL;
     return c.value(pfRatioAltitudeAdjusted(pf.value, pb.value), [pf, pb]);
   },
 });
@@ -223,6 +231,12 @@ export const PF_ADJUSTED_BELOW_MMHG = SEA_LEVEL_MMHG - 20;
 
 /** Most notes are near sea level: one outcome serves every gas. */
 const NEAR_SEA_LEVEL: Outcome = { kind: 'na', reason: `barometric pressure is ${PF_ADJUSTED_BELOW_MMHG} mmHg or more, close to sea level (the adjustment starts below ${PF_ADJUSTED_BELOW_MMHG} mmHg)` };
+
+/**
+ * Above sea level's pressure and the 20 mmHg the weather moves it (a hyperbaric chamber, a place
+ * below sea level): not "close to sea level", and the adjustment is for altitude only.
+ */
+const ABOVE_SEA_LEVEL: Outcome = { kind: 'na', reason: `barometric pressure is above sea level's (${SEA_LEVEL_MMHG} mmHg): the adjustment is for altitude, below ${PF_ADJUSTED_BELOW_MMHG} mmHg` };
 
 export const sfRatioDef = defineDerived({
   id: 'sf_ratio',
