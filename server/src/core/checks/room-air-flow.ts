@@ -23,6 +23,9 @@ export const flowOnRoomAirCheck = defineCheck({
   source: 'room air is breathing without supplemental oxygen, so it has no oxygen flow (common practice, no source)',
   runTimepoint(ctx) {
     const values = ctx.timepoint.values;
+    // Asked without building the values: a room-air line with an FiO2 states its device here (an
+    // oxygen line replaces the one before it whole), and nearly every timepoint states none.
+    if (values.originOf('device') !== 'here') return;
     // Reported where the oxygen line is written, not at every timepoint it carries to.
     if (values.originOf('o2_flow') !== 'here') return;
     const flow = flowOnRoomAir(values);
@@ -49,6 +52,9 @@ export const fio2OnRoomAirCheck = defineCheck({
   source: 'room air is breathing without supplemental oxygen, an FiO2 of 0.21 (common practice, no source)',
   runTimepoint(ctx) {
     const values = ctx.timepoint.values;
+    // Asked without building the values: a room-air line with an FiO2 states its device here (an
+    // oxygen line replaces the one before it whole), and nearly every timepoint states none.
+    if (values.originOf('device') !== 'here') return;
     // Reported where the oxygen line is written, not at every timepoint it carries to; the oxygen
     // line's FiO2 is the setting held even where a sampling FiO2 on a gas line is in force instead.
     const fio2 = values.heldSetting('fio2');

@@ -287,7 +287,8 @@ export class DeriveContext {
   fio2(): Term | null {
     const stated = this.field('fio2', 'FiO2');
     // An FiO2 above 0.21 on a room-air line (PN316): neither it nor the 0.21 of air is used.
-    if (stated) return stated.value > ROOM_AIR_FIO2 && isRoomAirContradiction(this.input('fio2')!, this.timepoint.values) ? null : stated;
+    // The device is asked of this context first (read once for every formula of the gas).
+    if (stated) return stated.value > ROOM_AIR_FIO2 && this.word('device')?.word === 'room air' && isRoomAirContradiction(this.input('fio2')!, this.timepoint.values) ? null : stated;
     // Several formulas of a gas read the FiO2: the room-air term is worked out once.
     if (this.airFio2 === undefined) this.airFio2 = this.roomAirFio2();
     return this.airFio2;
