@@ -126,6 +126,16 @@ describe('values in force and where they came from', () => {
     expect(value(later, 'fio2')).toBe(0.5);
   });
 
+  it('keeps the settings an earlier vent line of the same timepoint states when a later one changes the mode', () => {
+    // Every line of a timepoint describes the same moment: the VT and rate stated there are in force.
+    const t2 = timeline('@ 08:00\nvent mode VC, vt 500, rate 14, peep 5\n@ 09:00\nvent vt 400, rate 20\nvent mode PS, ps 10');
+    const later = t2.timepoints[1];
+    expect([value(later, 'vt'), value(later, 'vent_rate'), value(later, 'peep'), value(later, 'mode')]).toEqual([400, 20, 5, 'PS']);
+    // Settings carried from an earlier timepoint still end with the mode.
+    const t3 = timeline('@ 08:00\nvent mode VC, vt 500, rate 14, peep 5\n@ 09:00\nvent rate 20\nvent mode PS, ps 10');
+    expect([value(t3.timepoints[1], 'vt'), value(t3.timepoints[1], 'vent_rate')]).toEqual([undefined, 20]);
+  });
+
   it('keeps only FiO2 across a change to or from HFOV: an oscillator sets no PEEP (common practice, no source)', () => {
     const t3 = timeline('@ 08:00\nvent mode VC, vt 450, rate 20, peep 8, fio2 0.5\n@ 09:00\nvent mode hfov, rate 5 Hz, mpaw 26, amp 60\n@ 10:00\nvent mode PC, rate 16\n@ 11:00\nvent mode HFOV, mpaw 24, peep 6, fio2 0.7\n@ 12:00\nvent mode PS, ps 10');
     const [, hfov, pc, hfovAgain, ps] = t3.timepoints;

@@ -658,7 +658,9 @@ function apply(section: SectionId, stated: readonly (StatedValue | undefined)[],
       let base = state.vent;
       if (mode?.word && before && mode.word.toLowerCase() !== before.toLowerCase()) {
         const kept = isOscillation(mode.word) || isOscillation(before) ? KEPT_ACROSS_OSCILLATION : KEPT_ACROSS_MODES;
-        base = new Map([...base].filter(([id]) => kept.includes(id)));
+        // Settings stated at this timepoint on an earlier vent line stay: every line of a timepoint
+        // describes the same moment (`vent vt 400, rate 20` then `vent mode PS, ps 10`).
+        base = new Map([...base].filter(([id, held]) => kept.includes(id) || held.timepoint === tp));
       }
       state.vent = hold(base, stated, from, to, tp, label);
       break;
