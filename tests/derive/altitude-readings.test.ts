@@ -41,6 +41,23 @@ describe('the same gas at PB 760 mmHg', () => {
   });
 });
 
+describe('hypoxaemia with a normal gradient and no single cause past its threshold', () => {
+  // The alveolar gas equation still explains it: a PaCO2 above the normal 45 mmHg (common practice)
+  // and a PiO2 below sea-level air's 149.7 mmHg lower the alveolar PO2 together.
+  it('PB 715 mmHg, PaCO2 50, PaO2 59 (age 60): PiO2 0.21 × 668 = 140.3, PAO2 140.3 − 62.5 = 77.8, A–a 18.8 mmHg (normal ≤ 19)', () => {
+    const note = 'patient age 60 y\nplace barometric 715 mmHg\n@ 08:00\noxygen room air\nabg 7.35/50/59/27';
+    expect(derived(note, 'pio2').value).toBeCloseTo(140.28, 1);
+    expect(derived(note, 'aa_gradient').value).toBeCloseTo(18.78, 1);
+    expect(readings(note)['hypoxaemia-mechanism']).toBe('Hypoxaemia consistent with a low alveolar PO2 (PAO2 78 mmHg) from mild hypoventilation (PaCO2 50 mmHg, above 45 mmHg but not above 50 mmHg) and a PiO2 a little below that of air at sea level (140.3 mmHg, about 150 mmHg there), neither past its own threshold. The A–a gradient (18.8 mmHg) is within the age-based normal of 19 mmHg.');
+  });
+
+  it('the same gas with the hypoxaemia threshold set above what the values explain is still sent back to its inputs', () => {
+    // PaO2 88 under a threshold of 90 mmHg (a setting), PaCO2 40, PiO2 149.7: PAO2 99.7, A–a 11.7 mmHg; nothing lowers the alveolar PO2.
+    const note = 'patient age 60 y\n@ 08:00\noxygen room air\nabg 7.40/40/88/24';
+    expect(readings(note, { hypoxaemiaBelowMmhg: 90 })['hypoxaemia-mechanism']).toMatch(/^Hypoxaemia without a low PiO2, hypercapnia or a raised A–a gradient: recheck the inputs\./);
+  });
+});
+
 describe('a place stated but not usable', () => {
   // 12,000 written without a unit reads as metres, beyond any summit (PN204: ordinary in feet);
   // 80 bare in an mmHg note is implausible as mmHg (ordinary as kPa). Neither is used, and sea

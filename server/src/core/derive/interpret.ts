@@ -4,7 +4,7 @@
  * settings (hypoxaemia PaO2 < 60 mmHg and hypercapnia PaCO2 > 50 mmHg by default, common
  * practice). Grades and cut-offs not taken from settings are named below with their source.
  */
-import { ANION_GAP_UPPER_NORMAL_MMOL_L, BERLIN_BAND_SEVERITY, HCO3_CENTRE_MMOL_L, HCO3_NORMAL_MMOL_L, PACO2_NORMAL_MMHG, PH_NORMAL, berlinOxygenationBand, type AcidBaseClassification, type AcidBaseDisorder, type BerlinOxygenationBand } from '../physiology';
+import { ANION_GAP_UPPER_NORMAL_MMOL_L, BERLIN_BAND_SEVERITY, HCO3_CENTRE_MMOL_L, HCO3_NORMAL_MMOL_L, PACO2_NORMAL_MMHG, PH_NORMAL, berlinOxygenationBand, inspiredPo2Humidified, type AcidBaseClassification, type AcidBaseDisorder, type BerlinOxygenationBand } from '../physiology';
 import { sideOf } from '../physiology/numeric';
 import { MMHG_PER_KPA } from '../physiology/units';
 import type { Settings } from '../settings';
@@ -12,6 +12,7 @@ import { decimalsAgainst, formatAgainst, formatNumber, formatShort, rangeAgainst
 import { KPA_DECIMALS, kpaFromMmhg, kpaNumber, showsKpa } from '../present';
 import { classification } from './acid-base';
 import { isAboveAlveolar } from './gas-exchange';
+import { SEA_LEVEL_MMHG } from './atmosphere';
 import type { DeriveContext, Term } from './context';
 import type { DerivedValue, Interpretation, InterpretationTopic } from './model';
 import { NONE } from '../util/lists';
@@ -26,6 +27,11 @@ export const LOW_NORMAL_PAO2_MMHG = 80;
 export const UPPER_NORMAL_PACO2_MMHG = 45;
 /** PiO2 below this (mmHg) counts as low inspired oxygen: sea-level air gives about 150 (our convention). */
 export const LOW_PIO2_MMHG = 140;
+/**
+ * The humidified PiO2 (mmHg) of air at sea level: 0.21 × (760 − 47) = 149.7. A PiO2 below it, with
+ * the A–a gradient normal, lowers the alveolar PO2 even above LOW_PIO2_MMHG. Source: `inspired-po2`.
+ */
+const SEA_LEVEL_AIR_PIO2_MMHG = inspiredPo2Humidified(0.21, SEA_LEVEL_MMHG) ?? 149.7;
 /** Upper normal A–a gradient (mmHg) used when the age is unknown (common practice, generous). */
 export const AA_UPPER_NORMAL_NO_AGE_MMHG = 20;
 /** The boundaries (mmHg) of the Berlin oxygenation bands: 200 < P/F ≤ 300, 100 < P/F ≤ 200, P/F ≤ 100 (ARDS Definition Task Force, JAMA 2012). */
@@ -536,7 +542,24 @@ function mechanism(g: GasFacts): Interpretation {
   const caveat = onOxygen ? ' On supplemental oxygen the normal gradient is wider than the air-based limit.' : '';
   // The PiO2 (and so the gradient) rests on the FiO2: say so when it was stated at an earlier timepoint.
   const carried = fio2 !== null && fio2.origin.kind === 'carried' ? ` The PiO2 uses ${fio2Words(fio2)}.` : '';
-  if (causes.length === 0) return new Reading('hypoxaemia-mechanism', BASIS_MECHANISM, g, true, `Hypoxaemia without a low PiO2, hypercapnia or a raised A–a gradient: recheck the inputs.${normalGradient}${carried}${caveat}`);
+  if (causes.length === 0) {
+    // With the gradient normal, the PaO2 is low because the alveolar PO2 is (alveolar gas equation):
+    // a PaCO2 above its normal range and a PiO2 below sea-level air's lower it together, though
+    // neither is past its own threshold (PaCO2 50 at PB 715 mmHg: PAO2 78 mmHg, PaO2 59).
+    const alveolar = c.derivedValue('pao2_alveolar');
+    const lowering: string[] = [];
+    if (sideOf(paco2.value, UPPER_NORMAL_PACO2_MMHG, g.co2Resolution) > 0) {
+      lowering.push(`mild hypoventilation (PaCO2 ${gas.value(paco2.value, UPPER_NORMAL_PACO2_MMHG)}, above ${gas.limit(UPPER_NORMAL_PACO2_MMHG, paco2.value)} but not above ${gas.limit(settings.hypercapniaAboveMmhg, paco2.value)})`);
+    }
+    if (pio2.value < SEA_LEVEL_AIR_PIO2_MMHG - 0.5) {
+      lowering.push(`a PiO2 a little below that of air at sea level (${gas.value(pio2.value, LOW_PIO2_MMHG)}, about ${gas.limit(SEA_LEVEL_AIR_PIO2_MMHG, pio2.value)} there)`);
+    }
+    if (alveolar && lowering.length > 0) {
+      const short = lowering.length === 1 ? 'short of its threshold' : 'neither past its own threshold';
+      return new Reading('hypoxaemia-mechanism', BASIS_MECHANISM, g, true, `Hypoxaemia consistent with a low alveolar PO2 (PAO2 ${gas.value(alveolar.value, LOW_PIO2_MMHG)}) from ${wordList(lowering)}, ${short}.${normalGradient}${carried}${caveat}`);
+    }
+    return new Reading('hypoxaemia-mechanism', BASIS_MECHANISM, g, true, `Hypoxaemia without a low PiO2, hypercapnia or a raised A–a gradient: recheck the inputs.${normalGradient}${carried}${caveat}`);
+  }
   const text = causes.length === 1 ? `Hypoxaemia consistent with ${causes[0]}.` : `Hypoxaemia consistent with a mix of ${wordList(causes)}.`;
   return new Reading('hypoxaemia-mechanism', BASIS_MECHANISM, g, true, `${text}${normalGradient}${carried}${caveat}`);
 }
