@@ -130,6 +130,21 @@ describe('writing out the unit a bare value was read in', () => {
     expect(doubtful.some((a) => a.title.startsWith('Write the unit'))).toBe(false);
     expect(doubtful.some((a) => a.title === 'Mark as kPa' && a.findingCodes?.includes('PN204'))).toBe(true);
   });
+
+  it('not for a value kept out of calculations, nor where a finding offers another unit in that place', () => {
+    // A saturation written as a fraction reads as 0.9 %, which PN302 doubts: `spo2 0.9 %` would state that reading.
+    const fraction = actions('@ 08:00\nvitals spo2 0.|9').list;
+    expect(fraction.some((a) => a.title.startsWith('Write the unit'))).toBe(false);
+    expect(fraction.some((a) => a.title === 'Write `90`' && a.findingCodes?.includes('PN302'))).toBe(true);
+    // Impossible, and not used: its finding asks for the value to be checked, not for a unit.
+    expect(actions('@ 08:00\nvitals hr 40|0').list.some((a) => a.title.startsWith('Write the unit'))).toBe(false);
+    // Under HFOV a bare rate of 5 is a frequency in Hz (PN302 offers `5 Hz`): `rate 5 /min` would write the unlikely unit.
+    const hfov = actions('@ 08:00\nvent mode HFOV, rate |5, mpaw 25, amplitude 60').list;
+    expect(hfov.some((a) => a.title.startsWith('Write the unit it was read in: rate'))).toBe(false);
+    expect(hfov.some((a) => a.title === 'Write 5 Hz' && a.findingCodes?.includes('PN302'))).toBe(true);
+    // A usual value beside them keeps the action.
+    expect(after('@ 08:00\nvent mode HFOV, rate 5 Hz, mpaw 2|5', 'Write the unit it was read in')).toBe('@ 08:00\nvent mode HFOV, rate 5 Hz, mpaw 25 cmH2O');
+  });
 });
 
 describe('fix all of a kind', () => {

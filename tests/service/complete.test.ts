@@ -212,6 +212,21 @@ describe('units', () => {
   it('falls back to keys when the typed word is not a unit', () => {
     expect(labels('vitals hr 80 rr|')).toEqual(['rr']);
   });
+
+  it('finishes a unit of two words after its first word (`mm Hg`, `cm H2O`), never a key in its place', () => {
+    // `po2 80 mm H|` is `mm Hg` being typed: a key there (`mm hco3`) would leave `mm`, no unit, behind.
+    const items = complete('abg po2 80 mm H|');
+    expect(items.map((c) => c.label)).toEqual(['mm Hg']);
+    expect(items[0]?.replace).toEqual({ start: { line: 0, character: 11 }, end: { line: 0, character: 15 } });
+    expect(applyEdits('abg po2 80 mm H', [{ range: items[0]!.replace!, newText: items[0]!.insertText }])).toBe('abg po2 80 mm Hg');
+    expect(checkNote('abg po2 80 mm Hg').findings.filter((f) => f.code === 'PN202')).toEqual([]);
+    expect(labels('abg po2 80 mm |')).toEqual(['mm Hg']);
+    expect(labels('vent peep 8 cm |')).toEqual(['cm H2O']);
+    expect(labels('vent peep 8 CM h|')).toEqual(['cm H2O']);
+    expect(labels('abg 7.3/40/80/24 mm |')).toEqual(['mm Hg']);
+    // Not the first word of a unit this key takes: the keys, as after any unit.
+    expect(labels('vitals hr 80 mm |')).toContain('rr');
+  });
 });
 
 describe('in the middle of a word', () => {

@@ -3,6 +3,7 @@
 import { describe, expect, it } from 'vitest';
 import { allDerivations } from '../../server/src/core/analysis/analyse';
 import { checkNote } from '../../server/src/core/check-note';
+import { NoteSession } from '../../server/src/core/session';
 import { CAUTION, derivedHover, hoverAt } from '../../server/src/core/service';
 import { derivedBody } from '../../server/src/core/service/derived-hover';
 import { note, noteAt } from './cursor';
@@ -124,6 +125,25 @@ describe('hover on a key, value or unit', () => {
   it('says when a value is kept out of calculations, or replaced by a later one', () => {
     expect(markdown('abg po2 9.|1')).toContain('Not used in calculations: implausible in mmHg, ordinary in kPa');
     expect(markdown(note('@ 08:00', 'abg po2 7|1', 'abg po2 64'))).toContain('A later value at this timepoint replaces it (line 3)');
+  });
+
+  it('names no later value for a setting in force, also after lines are added above it while the note is open', () => {
+    // The session keeps a setting held as before (same line, same item) where it reads the same:
+    // the value in force is then another object for the same stated value.
+    const lines = ['@ day 1 08:00  one', 'vent      mode VC, peep 8', '@ +2h  two', 'vent      peep 10, plateau 28'];
+    const session = new NoteSession();
+    session.update(lines.join('\n'));
+    for (const text of [note('note      moved down', ...lines), note('', '', ...lines)]) {
+      const moved = session.update(text);
+      const fresh = checkNote(text);
+      const at = text.split('\n').indexOf(lines[1]!);
+      for (const character of [11, 20]) {
+        const md = hoverAt(moved, { line: at, character })?.markdown;
+        expect(md).toContain(`Stated on line ${at + 1}, at timepoint ‘one’`);
+        expect(md).not.toContain('replaces it');
+        expect(md).toBe(hoverAt(fresh, { line: at, character })?.markdown);
+      }
+    }
   });
 
   it('says why a value is not used: a word it does not know, a unit of something else, a unit it does not know', () => {

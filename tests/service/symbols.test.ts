@@ -114,6 +114,31 @@ describe('folding regions', () => {
     ]);
   });
 
+  it("ends a timepoint's fold before a region it does not hold, so that no two folds cross", () => {
+    // Regions written around timepoints: the markers between two timepoints belong to the regions.
+    const text = note(
+      '# region day 1',           // 0
+      '@ day 1 08:00  a',         // 1
+      'vitals    hr 80',          // 2
+      '# endregion',              // 3
+      '',                         // 4
+      '# region day 2',           // 5
+      '@ day 2 08:00  b',         // 6
+      'vitals    hr 90',          // 7
+      '# endregion',              // 8
+      '# note after the regions', // 9
+    );
+    const ranges = foldingRanges(checkNote(text));
+    expect(ranges).toEqual([
+      { startLine: 0, endLine: 3, kind: 'region' },
+      { startLine: 1, endLine: 2 },
+      { startLine: 5, endLine: 8, kind: 'region' },
+      { startLine: 6, endLine: 7 },
+    ]);
+    // Every two folds are apart or one holds the other (an editor drops folds that cross).
+    for (const a of ranges) for (const b of ranges) expect(a.endLine < b.startLine || b.endLine < a.startLine || (a.startLine <= b.startLine && b.endLine <= a.endLine) || (b.startLine <= a.startLine && a.endLine <= b.endLine)).toBe(true);
+  });
+
   it('ignores unmatched markers, markers after content, and words that only start like them', () => {
     const text = note(
       '# endregion',              // 0: nothing open

@@ -69,7 +69,7 @@ function valueActions(result: NoteResult, range: Range): ActionInfo[] {
         pushAll(out, shorthandActions(result, line));
       } else {
         pushAll(out, conversionAction(stated));
-        pushAll(out, addUnitAction(stated));
+        pushAll(out, addUnitAction(result, stated));
       }
     }
   }
@@ -109,10 +109,19 @@ function conversionAction(s: StatedValue): ActionInfo[] {
   return [{ title, kind: 'refactor.rewrite', edits }];
 }
 
-function addUnitAction(s: StatedValue): ActionInfo[] {
-  if (!s.unitImplied || !s.readUnit || s.unitDoubt || s.readUnit === 'fraction' || s.readUnit === 'ph' || !s.item.value) return [];
+/**
+ * `po2 71` → `po2 71 mmHg`: the unit a bare value was read in, written out. Not for a value kept
+ * out of calculations (a saturation written as a fraction, `spo2 0.9`, reads as 0.9 %; an
+ * impossible heart rate) nor where a finding's fix writes something else right after the number
+ * (`Write 5 Hz` for a bare HFOV rate): writing the unit it was read in would state the reading the
+ * finding doubts, as for a value whose unit is in doubt (PN204).
+ */
+function addUnitAction(result: NoteResult, s: StatedValue): ActionInfo[] {
+  if (!s.unitImplied || !s.usable || !s.readUnit || s.unitDoubt || s.readUnit === 'fraction' || s.readUnit === 'ph' || !s.item.value) return [];
   const unit = displayUnit(s.readUnit);
   const end = s.item.value.span.end;
+  const after = { line: s.line, character: end };
+  if (result.findings.some((f) => f.fixes.some((fix) => fix.edits.some((e) => comparePositions(e.range.start, after) === 0)))) return [];
   return [{
     title: `Write the unit it was read in: ${keyOf(s)} ${s.item.value.text} ${unit}`,
     kind: 'refactor.rewrite',

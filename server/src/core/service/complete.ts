@@ -9,7 +9,8 @@
  * - after a key and a number (or a shorthand gas, or a device's flow): the units it takes (for a
  *   gas pressure the note's gas unit first, as a bare number is read in it), then
  *   the keys that may follow (a unit may be left out); on an oxygen line, the keys of its device
- *   (no flow on room air; IPAP and EPAP for NIV, a level for CPAP).
+ *   (no flow on room air; IPAP and EPAP for NIV, a level for CPAP);
+ * - after the first word of a unit of two words the key takes (`po2 80 mm |`): that unit, whole.
  * Completions are narrowed to those whose label starts with the text typed before the cursor, and
  * replace the whole word under the cursor (the part after it too: `sp|2` becomes `spo2`). Nothing
  * is offered where it would break what follows the cursor: in front of a number, a unit, a
@@ -21,6 +22,7 @@ import { canonicalWord, fieldFor, fieldsInSection, type FieldDef } from '../fiel
 import { SECTIONS, sectionByName, type SectionDef, type SectionId } from '../fields/sections';
 import { squeezeBlanks } from '../syntax/blanks';
 import { chunkLine, isBlank, leadingNumber } from '../syntax/lexer';
+import { unitById } from '../fields/units';
 import { parseLine } from '../syntax/parser';
 import type { ItemNode, LineNode } from '../syntax/tree';
 import type { Position, Range } from '../types';
@@ -118,6 +120,15 @@ function completionsOnLine(node: LineNode, position: Position, gasUnit: () => Ga
   const prefix = parseLine(before, line);
   const items = prefix.kind === 'section' ? prefix.items : [];
   const item = items[items.length - 1];
+  // `po2 80 mm |`, `peep 8 cm H|`, `abg 7.3/40/80/24 mm |`: the second word of a unit of two words
+  // is being typed; a key in its place (`mm hco3`) would leave the first word behind as a unit no
+  // field takes. (A shorthand gas keeps its unit on its pressures, not on its last number.)
+  const unitBefore = afterNumber ? undefined : items.find((i) => i.unit !== null && i.unit.span.end === last.span.end);
+  const unitBeforeField = unitBefore ? fieldFor(section.id, unitBefore.keyName) : undefined;
+  if (unitBefore?.unit && unitBeforeField) {
+    const rest = secondWordCompletions(unitBeforeField, unitBefore.unit.text, typed, lineRange(line, unitBefore.unit.span.start, wordEnd));
+    if (rest.length > 0) return rest;
+  }
   if (!item || item.span.end !== last.span.end) return afterNumber ? [] : keys();
   const field = fieldFor(section.id, item.keyName);
   const unitRange = lineRange(line, unitStart, wordEnd);
@@ -139,6 +150,25 @@ function completionsOnLine(node: LineNode, position: Position, gasUnit: () => Ga
     return [...units, ...keys()];
   }
   return keys();
+}
+
+/**
+ * The units of two words a field takes (`mm Hg`, `cm H2O`) whose first word is `first` and whose
+ * second starts with `typed`, written whole in place of both words.
+ */
+function secondWordCompletions(field: FieldDef, first: string, typed: string, replace: Range): CompletionInfo[] {
+  const out: CompletionInfo[] = [];
+  const lead = `${first.toLowerCase()} `;
+  const t = typed.toLowerCase();
+  for (const id of field.units ?? []) {
+    for (const spelling of unitById(id)?.aliases ?? []) {
+      const lower = spelling.toLowerCase();
+      if (lower.startsWith(lead) && lower.slice(lead.length).startsWith(t) && !out.some((c) => c.label === spelling)) {
+        out.push({ label: spelling, kind: 'unit', detail: `${field.label} · ${unitLabel(id)}`, insertText: spelling, replace });
+      }
+    }
+  }
+  return out;
 }
 
 /**

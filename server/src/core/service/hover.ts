@@ -176,7 +176,9 @@ function originText(result: NoteResult, s: StatedValue): string {
   const tp = timepointOfLine(result, s.line);
   if (!tp || result.analysis.timeline.header.includes(s)) return `From the header, line ${s.line + 1}.`;
   const inForce = tp.values.get(s.fieldId);
-  const replaced = inForce && inForce.stated !== s && inForce.stated.section === s.section && inForce.origin.kind === 'here'
+  // The same stated value may be another object in force: an open note keeps a setting held as
+  // before where it reads the same (same line, same item), after lines are added or removed above it.
+  const replaced = inForce && !(inForce.stated === s || (inForce.stated.item === s.item && inForce.stated.line === s.line)) && inForce.stated.section === s.section && inForce.origin.kind === 'here'
     ? ` A later value at this timepoint replaces it (line ${inForce.stated.line + 1}).`
     : '';
   return `Stated on line ${s.line + 1}, at timepoint ${timepointName(tp)}.${replaced}${endedText(tp, s)}`;

@@ -136,19 +136,43 @@ export function foldingRanges(result: NoteResult): FoldingInfo[] {
   // The header folds as a timepoint does, from its first line to its last header line, when that
   // takes more than one line.
   const { header } = headerOf(result);
-  const headerEnd = header?.lines[header.lines.length - 1]?.line ?? -1;
+  const regions = regionRanges(lines);
+  const headerEnd = header ? outsideRegions(lines, regions, header.start, header.lines[header.lines.length - 1]?.line ?? -1) : -1;
   if (header && headerEnd > header.start) out.push({ startLine: header.start, endLine: headerEnd });
   const firstTpLine = result.analysis.timeline.timepoints.find((t) => t.line !== null)?.line ?? lines.length;
   for (const tp of result.analysis.timeline.timepoints) {
     const start = tp.line ?? firstValueLine(lines, firstTpLine) ?? tp.startLine;
-    const end = lastFilledLine(lines, start, Math.max(start, tp.endLine));
+    const end = outsideRegions(lines, regions, start, lastFilledLine(lines, start, Math.max(start, tp.endLine)));
     if (end > start) out.push({ startLine: start, endLine: end });
   }
-  const regions = regionRanges(lines);
   if (regions.length === 0) return out;
   // A region marked around exactly the header (or a timepoint) folds once, as the region.
   const plain = out.filter((r) => !regions.some((g) => g.startLine === r.startLine && g.endLine === r.endLine));
   return [...plain, ...regions].sort((a, b) => a.startLine - b.startLine || b.endLine - a.endLine);
+}
+
+/**
+ * The last line of a fold from `start` to `end` (a timepoint's, the header's) that crosses no region: a timepoint's lines run
+ * to the next timepoint, comment lines included, and where regions are written around timepoints
+ * (`# endregion`, `# region day 2` between two of them) the markers belong to the regions. An
+ * editor drops one of two folds that cross, so the timepoint's fold ends before a region that
+ * opens inside it and closes after it, or that opened before it and closes inside it.
+ */
+function outsideRegions(lines: readonly LineNode[], regions: readonly FoldingInfo[], start: number, end: number): number {
+  let last = end;
+  // Each cut can only shorten the fold; one more pass finds a region the shorter fold crosses.
+  for (let moved = true; moved;) {
+    moved = false;
+    for (const g of regions) {
+      const cut = g.startLine > start && g.startLine <= last && g.endLine > last ? g.startLine - 1
+        : g.startLine < start && g.endLine >= start && g.endLine < last ? g.endLine - 1 : last;
+      if (cut < last) {
+        last = lastFilledLine(lines, start, Math.max(start, cut));
+        moved = true;
+      }
+    }
+  }
+  return last;
 }
 
 /**
