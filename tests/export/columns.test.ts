@@ -14,6 +14,8 @@ const plain = { redactProse: false, shiftDays: 0 } as const;
 const MMHG_PER_KPA = 1000 / 133.322387415;
 
 /** Rows of a note by timepoint index. */
+const columnDescription = (name: string): string => exportColumns().find((c) => c.name === name)?.description ?? '';
+
 function rowsOf(text: string, options: { redactProse: boolean; shiftDays: number } = plain): Row[] {
   return timepointRows('note.pneu', checked(text), options);
 }
@@ -39,7 +41,7 @@ describe('the column list', () => {
       'cao2_mL_dL', 'do2_mL_min',
       'carried_fields', 'findings_errors', 'findings_warnings', 'findings_information',
       // Added later: after every earlier column.
-      'mechanical_power_surrogate_J_min', 'amplitude_cmH2O',
+      'mechanical_power_surrogate_J_min', 'amplitude_cmH2O', 'base_excess_venous_mmol_L',
     ]);
   });
 
@@ -158,6 +160,27 @@ describe('cells', () => {
   it('hold the measurement written last when one is stated in two sections of a timepoint, and the sampling FiO2 over the ventilator\'s (README, "Export columns")', () => {
     const [row] = rowsOf('@ day 1 08:00\nlabs na 141, hb 13\nabg na 139, hb 12\nvent etco2 40\nvitals etco2 30\nabg fio2 0.5\nvent mode VC, fio2 0.4');
     expect([row?.na_mmol_L, row?.hb_g_dL, row?.etco2_mmHg, row?.fio2_fraction]).toEqual([139, 12, 30, 0.5]);
+  });
+
+  it('keep an arterial and a venous base excess of one timepoint apart, neither lost: LOINC codes them as two values (1925-7 in arterial blood, 11555-0 in blood; FHIR R4 example observation-example-f002-excess)', () => {
+    const [both] = rowsOf('@ day 1 08:00\nabg 7.30/50/80/24, be 0.5\nvbg 7.28/55/40/25, be 1');
+    expect([both?.base_excess_mmol_L, both?.base_excess_venous_mmol_L]).toEqual([0.5, 1]);
+    // Written the other way round, each still in its own column.
+    const [reversed] = rowsOf('@ day 1 08:00\nvbg 7.28/55/40/25, be 1\nabg 7.30/50/80/24, be 0.5');
+    expect([reversed?.base_excess_mmol_L, reversed?.base_excess_venous_mmol_L]).toEqual([0.5, 1]);
+    // A venous base excess alone is never read as the arterial one; an arterial one alone leaves the venous column empty.
+    const [venous, arterial] = rowsOf('@ day 1 08:00\nvbg 7.28/55/40/25, be -3\n@ +1h\nabg 7.30/50/80/24, be -2, be -2.5');
+    expect([venous?.base_excess_mmol_L, venous?.base_excess_venous_mmol_L]).toEqual([null, -3]);
+    // Restated on its own line (PN206), the later arterial value is the one used.
+    expect([arterial?.base_excess_mmol_L, arterial?.base_excess_venous_mmol_L]).toEqual([-2.5, null]);
+    expect(columnDescription('base_excess_mmol_L')).toContain('`base_excess_venous_mmol_L`');
+    expect(columnDescription('base_excess_venous_mmol_L')).toContain('`vbg` line');
+  });
+
+  it('say which line gives lactate and Hb when several do: the same analyte in every sample, so one column with the one written last (README, "Export columns")', () => {
+    const [row] = rowsOf('@ day 1 08:00\nabg 7.35/40/90/24, lactate 2.0, hb 12.1\nvbg 7.33/46/40/25, lactate 2.4, hb 11.9\nlabs hb 11.5');
+    expect([row?.lactate_mmol_L, row?.hb_g_dL]).toEqual([2.4, 11.5]);
+    for (const column of ['lactate_mmol_L', 'hb_g_dL']) expect(columnDescription(column)).toContain('the one written last is in the cell');
   });
 
   it('describe the anion gap by the HCO3 column it uses: the serum bicarbonate, else the arterial gas HCO3, else the venous one (common practice, no source)', () => {
