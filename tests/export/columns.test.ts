@@ -135,6 +135,15 @@ describe('cells', () => {
     expect(rowsOf('@ day 1 08:00\nabg po2 80\n@ +1h\nunits gas kPa\nabg po2 10').map((r) => r.gas_unit)).toEqual(['mmHg', 'kPa']);
   });
 
+  it('name the unit the bare gas pressures of the timepoint were read in, also where a `units gas` line below them changes it (README, "Export columns": `gas_unit` tells what bare numbers were read as)', () => {
+    // `abg 7.30/45/80/24` is read in mmHg, the unit in force at its line; the kPa of the line below holds from there on.
+    const [before, after] = rowsOf('@ day 1 08:00\nabg 7.30/45/80/24\nunits gas kPa\n@ +1h\nabg pco2 6');
+    expect([before?.gas_unit, before?.paco2_mmHg]).toEqual(['mmHg', 45]);
+    expect(after?.gas_unit).toBe('kPa');
+    // A unit written beside the number is not a bare number's: the unit in force is named.
+    expect(rowsOf('units gas kPa\n@ day 1 08:00\nabg pco2 45 mmHg').map((r) => r.gas_unit)).toEqual(['kPa']);
+  });
+
   it('describe the delta ratio by the columns it is computed from: the albumin-corrected gap when there is one (Rastegar A, JASN 2007;18:2429–2431, from memory; Figge J et al., Crit Care Med 1998;26:1807–1810, from memory)', () => {
     // AG 140 − (100 + 20) = 20; corrected 20 + 2.5 × (4.0 − 3.0) = 22.5; (22.5 − 12) ÷ (24 − 20) = 2.625.
     const [row] = rowsOf('@ day 1 08:00\nlabs na 140, cl 100, hco3 20, albumin 3.0');

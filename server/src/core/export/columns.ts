@@ -27,8 +27,9 @@
  *   and of a venous gas) has a column per kind (`COLUMN_SECTION`): each holds the value stated on
  *   its kind of line, never the other's. Other measurements stated on several kinds of line at one
  *   timepoint (sodium on a blood gas and a labs line, lactate, Hb) have the one written last.
- * - `gas_unit` is the unit bare gas pressures were read in at the timepoint: the note's
- *   `units gas` in force, else the gasUnit setting (so it is never empty).
+ * - `gas_unit` is the unit bare gas pressures were read in at the timepoint: the unit of those
+ *   stated there when they agree (a `units gas` line counts from its line on), else the note's
+ *   `units gas` in force at its end, else the gasUnit setting (so it is never empty).
  * - Derived values appear at the timepoints where Pneumark reports them, that is where one of
  *   their main inputs was stated (see grammar/README.md, "Derived values").
  * - Numbers are never NaN or infinite: such a value is left empty (null).
@@ -166,17 +167,33 @@ function derivedAt(list: readonly DerivedValue[]): (DerivedValue | undefined)[] 
 
 const GAS_UNIT = 'gas_unit';
 
-/** The gas unit in force at each timepoint: the last `units gas` of the header or an earlier timepoint, else the setting. */
+/**
+ * The unit bare gas pressures were read in at each timepoint: the unit the bare gas pressures stated
+ * there were read in, when it states some and they agree (a `units gas` line below them at the same
+ * timepoint counts only from its line on, as the note is read: `abg 7.30/45/80/24` above `units gas
+ * kPa` was read in mmHg); else the unit in force at its end, the last `units gas` of the header or
+ * of a timepoint up to this one, else the setting.
+ */
 function gasUnits(result: NoteResult): string[] {
   const word = (stated: readonly StatedValue[]): string | null => {
     let found: string | null = null;
     for (const s of stated) if (s.fieldId === GAS_UNIT && s.word !== null) found = s.word;
     return found;
   };
+  /** The one unit the bare gas pressures of a timepoint were read in; null when none is bare, or they differ. */
+  const readIn = (stated: readonly StatedValue[]): string | null => {
+    let found: string | null = null;
+    for (const s of stated) {
+      if (s.field.bare !== 'gas' || !s.unitImplied || s.readUnit === null) continue;
+      if (found !== null && found !== s.readUnit) return null;
+      found = s.readUnit;
+    }
+    return found;
+  };
   let unit = word(result.analysis.timeline.header) ?? result.settings.gasUnit;
   return result.analysis.timeline.timepoints.map((tp) => {
     unit = word(tp.stated) ?? unit;
-    return unit;
+    return readIn(tp.stated) ?? unit;
   });
 }
 
@@ -221,7 +238,7 @@ function fieldColumns(field: FieldDef, index: number, onlySection: SectionId | n
   const base = { kind: 'field' as const, source: field.id, section: null };
   if (field.id === GAS_UNIT) {
     // The timeline keeps the gas unit apart from the values in force: it is how bare numbers are read.
-    return [{ ...base, name: field.id, description: `${field.label}: ${field.description} The note's \`units gas\` in force, else the gasUnit setting.`, unit: null, ucum: null, type: 'string', part: null, cell: (c) => c.gasUnit }];
+    return [{ ...base, name: field.id, description: `${field.label}: ${field.description} The unit the bare gas pressures stated at the timepoint were read in (a \`units gas\` line counts from its line on), else the note's \`units gas\` in force at the end of the timepoint, else the gasUnit setting.`, unit: null, ucum: null, type: 'string', part: null, cell: (c) => c.gasUnit }];
   }
   if (field.kind === 'word') {
     return [{ ...base, name: field.id, description: `${field.label}: ${field.description}`, unit: null, ucum: null, type: 'string', part: null, cell: (c) => c.inputs[index]?.stated.word ?? null }];
