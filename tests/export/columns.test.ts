@@ -214,6 +214,12 @@ describe('cells', () => {
     expect(rowsOf('@ day 1 08:00\nlabs albumin 34 g/L, hb 123 g/L').map((x) => [x.albumin_g_dL, x.hb_g_dL])).toEqual([[3.4, 12.3]]);
   });
 
+  it('give the low-flow FiO2 estimate as the rule\'s decimal, unrounded and without a floating-point tail (0.21 + 0.04 per L/min: common practice, no source)', () => {
+    const cells = [3, 5, 6].map((flow) => rowsOf(`@ day 1 08:00\noxygen cannula ${flow} L/min`)[0]?.fio2_estimated);
+    expect(cells).toEqual([0.33, 0.41, 0.45]);
+    expect(rowsOf('@ day 1 08:00\noxygen mask 8 L/min')[0]?.fio2_estimated).toBe(0.47);
+  });
+
   it('leave out a value Pneumark does not use (SpO2 104 % is impossible)', () => {
     expect(rows[0]?.spo2_pct).toBeNull();
     expect(rows[0]?.findings_errors).toBeGreaterThan(0);
