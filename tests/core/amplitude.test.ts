@@ -60,10 +60,12 @@ describe('the amplitude in the editor and the exports', () => {
     expect(hoverAt(hover.result, hover.position)?.markdown ?? '').toMatch(/Oscillation amplitude/);
   });
 
-  it('has the last CSV and JSON Lines column, `amplitude_cmH2O`, in cmH2O', () => {
+  it('has a CSV and JSON Lines column added after the first published ones, `amplitude_cmH2O`, in cmH2O', () => {
     const columns = exportColumns();
-    expect(columns.at(-1)?.name).toBe('amplitude_cmH2O');
-    expect(columns.at(-1)?.ucum).toBe('cm[H2O]');
+    const at = columns.findIndex((c) => c.name === 'amplitude_cmH2O');
+    // After every column of the first published list and the one added before it; later additions follow it.
+    expect(columns.slice(at - 2, at).map((c) => c.name)).toEqual(['findings_information', 'mechanical_power_surrogate_J_min']);
+    expect(columns[at]?.ucum).toBe('cm[H2O]');
     const [row] = timepointRows('n.pneu', checkNote(HFOV.replace('amplitude 60', 'amplitude 60 mbar')), { redactProse: false, shiftDays: 0 });
     expect(row?.['amplitude_cmH2O']).toBeCloseTo(6000 / 98.0665, 9);
   });

@@ -14,6 +14,8 @@ const plain = { redactProse: false, shiftDays: 0 } as const;
 const MMHG_PER_KPA = 1000 / 133.322387415;
 
 /** Rows of a note by timepoint index. */
+const columnDescription = (name: string): string => exportColumns().find((c) => c.name === name)?.description ?? '';
+
 function rowsOf(text: string, options: { redactProse: boolean; shiftDays: number } = plain): Row[] {
   return timepointRows('note.pneu', checked(text), options);
 }
@@ -39,7 +41,7 @@ describe('the column list', () => {
       'cao2_mL_dL', 'do2_mL_min',
       'carried_fields', 'findings_errors', 'findings_warnings', 'findings_information',
       // Added later: after every earlier column.
-      'mechanical_power_surrogate_J_min', 'amplitude_cmH2O',
+      'mechanical_power_surrogate_J_min', 'amplitude_cmH2O', 'base_excess_venous_mmol_L',
     ]);
   });
 
@@ -133,6 +135,15 @@ describe('cells', () => {
     expect(rowsOf('@ day 1 08:00\nabg po2 80\n@ +1h\nunits gas kPa\nabg po2 10').map((r) => r.gas_unit)).toEqual(['mmHg', 'kPa']);
   });
 
+  it('name the unit the bare gas pressures of the timepoint were read in, also where a `units gas` line below them changes it (README, "Export columns": `gas_unit` tells what bare numbers were read as)', () => {
+    // `abg 7.30/45/80/24` is read in mmHg, the unit in force at its line; the kPa of the line below holds from there on.
+    const [before, after] = rowsOf('@ day 1 08:00\nabg 7.30/45/80/24\nunits gas kPa\n@ +1h\nabg pco2 6');
+    expect([before?.gas_unit, before?.paco2_mmHg]).toEqual(['mmHg', 45]);
+    expect(after?.gas_unit).toBe('kPa');
+    // A unit written beside the number is not a bare number's: the unit in force is named.
+    expect(rowsOf('units gas kPa\n@ day 1 08:00\nabg pco2 45 mmHg').map((r) => r.gas_unit)).toEqual(['kPa']);
+  });
+
   it('describe the delta ratio by the columns it is computed from: the albumin-corrected gap when there is one (Rastegar A, JASN 2007;18:2429–2431, from memory; Figge J et al., Crit Care Med 1998;26:1807–1810, from memory)', () => {
     // AG 140 − (100 + 20) = 20; corrected 20 + 2.5 × (4.0 − 3.0) = 22.5; (22.5 − 12) ÷ (24 − 20) = 2.625.
     const [row] = rowsOf('@ day 1 08:00\nlabs na 140, cl 100, hco3 20, albumin 3.0');
@@ -160,6 +171,27 @@ describe('cells', () => {
     expect([row?.na_mmol_L, row?.hb_g_dL, row?.etco2_mmHg, row?.fio2_fraction]).toEqual([139, 12, 30, 0.5]);
   });
 
+  it('keep an arterial and a venous base excess of one timepoint apart, neither lost: LOINC codes them as two values (1925-7 in arterial blood, 11555-0 in blood; FHIR R4 example observation-example-f002-excess)', () => {
+    const [both] = rowsOf('@ day 1 08:00\nabg 7.30/50/80/24, be 0.5\nvbg 7.28/55/40/25, be 1');
+    expect([both?.base_excess_mmol_L, both?.base_excess_venous_mmol_L]).toEqual([0.5, 1]);
+    // Written the other way round, each still in its own column.
+    const [reversed] = rowsOf('@ day 1 08:00\nvbg 7.28/55/40/25, be 1\nabg 7.30/50/80/24, be 0.5');
+    expect([reversed?.base_excess_mmol_L, reversed?.base_excess_venous_mmol_L]).toEqual([0.5, 1]);
+    // A venous base excess alone is never read as the arterial one; an arterial one alone leaves the venous column empty.
+    const [venous, arterial] = rowsOf('@ day 1 08:00\nvbg 7.28/55/40/25, be -3\n@ +1h\nabg 7.30/50/80/24, be -2, be -2.5');
+    expect([venous?.base_excess_mmol_L, venous?.base_excess_venous_mmol_L]).toEqual([null, -3]);
+    // Restated on its own line (PN206), the later arterial value is the one used.
+    expect([arterial?.base_excess_mmol_L, arterial?.base_excess_venous_mmol_L]).toEqual([-2.5, null]);
+    expect(columnDescription('base_excess_mmol_L')).toContain('`base_excess_venous_mmol_L`');
+    expect(columnDescription('base_excess_venous_mmol_L')).toContain('`vbg` line');
+  });
+
+  it('say which line gives lactate and Hb when several do: the same analyte in every sample, so one column with the one written last (README, "Export columns")', () => {
+    const [row] = rowsOf('@ day 1 08:00\nabg 7.35/40/90/24, lactate 2.0, hb 12.1\nvbg 7.33/46/40/25, lactate 2.4, hb 11.9\nlabs hb 11.5');
+    expect([row?.lactate_mmol_L, row?.hb_g_dL]).toEqual([2.4, 11.5]);
+    for (const column of ['lactate_mmol_L', 'hb_g_dL']) expect(columnDescription(column)).toContain('the one written last is in the cell');
+  });
+
   it('describe the anion gap by the HCO3 column it uses: the serum bicarbonate, else the arterial gas HCO3, else the venous one (common practice, no source)', () => {
     // Serum 20 beside a gas HCO3 of 24: 140 − (100 + 20) = 20; the gas HCO3 alone: 140 − (100 + 24) = 16.
     const [both] = rowsOf('@ day 1 08:00\nabg 7.40/40/90/24\nlabs na 140, cl 100, hco3 20');
@@ -180,6 +212,12 @@ describe('cells', () => {
     expect(r.map((x) => x.fio2_fraction)).toEqual([0.7, 0.7, 0.7, 0.35, 0.35]);
     expect(r.map((x) => x.pf_ratio)).toEqual([100, 100, 100, 200, 200]);
     expect(rowsOf('@ day 1 08:00\nlabs albumin 34 g/L, hb 123 g/L').map((x) => [x.albumin_g_dL, x.hb_g_dL])).toEqual([[3.4, 12.3]]);
+  });
+
+  it('give the low-flow FiO2 estimate as the rule\'s decimal, unrounded and without a floating-point tail (0.21 + 0.04 per L/min: common practice, no source)', () => {
+    const cells = [3, 5, 6].map((flow) => rowsOf(`@ day 1 08:00\noxygen cannula ${flow} L/min`)[0]?.fio2_estimated);
+    expect(cells).toEqual([0.33, 0.41, 0.45]);
+    expect(rowsOf('@ day 1 08:00\noxygen mask 8 L/min')[0]?.fio2_estimated).toBe(0.47);
   });
 
   it('leave out a value Pneumark does not use (SpO2 104 % is impossible)', () => {

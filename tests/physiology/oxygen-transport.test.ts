@@ -55,6 +55,12 @@ describe('rough FiO2 for low-flow devices', () => {
     if (expected === null) expect(fio2).toBeNull();
     else expect(fio2).toBeCloseTo(expected, 12);
   });
+  it('gives the rule\'s decimal to the last digit, as the exports write it (0.21 + 0.04 per L/min; 0.35 at 5 to 0.55 at 10 L/min: common practice, no source)', () => {
+    // 0.21 + 0.04 × 3 is 0.32999999999999996 in doubles: a CSV cell would not read 0.33.
+    expect([1, 2, 3, 4, 5, 6].map((flow) => fio2EstimateLowFlow('cannula', flow))).toEqual([0.25, 0.29, 0.33, 0.37, 0.41, 0.45]);
+    expect(fio2EstimateLowFlow('cannula', 0.5)).toBe(0.23);
+    expect([5, 6, 7, 8, 9, 10].map((flow) => fio2EstimateLowFlow('mask', flow))).toEqual([0.35, 0.39, 0.43, 0.47, 0.51, 0.55]);
+  });
   it('returns null for an unknown device', () => {
     expect(fio2EstimateLowFlow('venturi' as unknown as LowFlowDevice, 4)).toBeNull();
   });

@@ -15,15 +15,21 @@
  *     after the id when a field has the same id (`barometric_derived_mmHg`);
  *   carried_fields, findings_errors, findings_warnings, findings_information;
  *   then the fields and derived values added after the first published list (`ADDED_LATER`), in
- *   the order added: mechanical_power_surrogate_J_min, amplitude_cmH2O.
+ *   the order added: mechanical_power_surrogate_J_min, amplitude_cmH2O, base_excess_venous_mmol_L
+ *   (a field stated on another kind of line, whose value is another one: see `COLUMN_SECTION`).
  *
  * Cells:
  * - Field values are those in force at the timepoint: stated there, carried from an earlier
  *   timepoint (settings) or from the header (patient, place, units), in the canonical unit at
  *   full precision (a gas written in kPa appears in mmHg, unrounded). A value Pneumark does not
  *   use in calculations (impossible, or in a doubtful unit: see its finding) is left empty.
- * - `gas_unit` is the unit bare gas pressures were read in at the timepoint: the note's
- *   `units gas` in force, else the gasUnit setting (so it is never empty).
+ * - A field whose value differs with the kind of line it is stated on (base excess of an arterial
+ *   and of a venous gas) has a column per kind (`COLUMN_SECTION`): each holds the value stated on
+ *   its kind of line, never the other's. Other measurements stated on several kinds of line at one
+ *   timepoint (sodium on a blood gas and a labs line, lactate, Hb) have the one written last.
+ * - `gas_unit` is the unit bare gas pressures were read in at the timepoint: the unit of those
+ *   stated there when they agree (a `units gas` line counts from its line on), else the note's
+ *   `units gas` in force at its end, else the gasUnit setting (so it is never empty).
  * - Derived values appear at the timepoints where Pneumark reports them, that is where one of
  *   their main inputs was stated (see grammar/README.md, "Derived values").
  * - Numbers are never NaN or infinite: such a value is left empty (null).
@@ -46,7 +52,7 @@ import type { DerivedValue } from '../derive/model';
 import { SEA_LEVEL_MMHG } from '../derive/atmosphere';
 import { DERIVED } from '../derive/registry';
 import { FIELDS, type FieldDef } from '../fields/registry';
-import { sectionById } from '../fields/sections';
+import { sectionById, type SectionId } from '../fields/sections';
 import type { Finding } from '../types';
 import { ucumCode, unitForPeople, unitSlug } from './units';
 
@@ -65,6 +71,11 @@ export interface ColumnDef {
   readonly source: string | null;
   /** Which part of the source: the two numbers of blood pressure, the two ends of an expected range. */
   readonly part: 'systolic' | 'diastolic' | 'low' | 'high' | null;
+  /**
+   * The kind of line a field column's value is read from where the kind changes the value (base
+   * excess: `abg` for the arterial column, `vbg` for the venous one); null for the value in force.
+   */
+  readonly section: SectionId | null;
 }
 
 export type Cell = string | number | null;
@@ -106,7 +117,7 @@ const finite = (value: number | null | undefined): number | null => (value !== n
 
 function timepointColumns(): Column[] {
   const meta = (name: string, type: ColumnDef['type'], unit: 'min' | null, description: string, cell: Column['cell']): Column =>
-    ({ name, description, unit, ucum: unit, type, kind: 'timepoint', source: null, part: null, cell });
+    ({ name, description, unit, ucum: unit, type, kind: 'timepoint', source: null, part: null, section: null, cell });
   return [
     meta('file', 'string', null, 'Path of the note relative to the working folder (also when it was named by its absolute path), or `<stdin>` for standard input.', (c) => c.path),
     meta('timepoint', 'number', null, 'Index of the timepoint in the note, from 0.', (c) => c.timepoint.index),
@@ -156,25 +167,78 @@ function derivedAt(list: readonly DerivedValue[]): (DerivedValue | undefined)[] 
 
 const GAS_UNIT = 'gas_unit';
 
-/** The gas unit in force at each timepoint: the last `units gas` of the header or an earlier timepoint, else the setting. */
+/**
+ * The unit bare gas pressures were read in at each timepoint: the unit the bare gas pressures stated
+ * there were read in, when it states some and they agree (a `units gas` line below them at the same
+ * timepoint counts only from its line on, as the note is read: `abg 7.30/45/80/24` above `units gas
+ * kPa` was read in mmHg); else the unit in force at its end, the last `units gas` of the header or
+ * of a timepoint up to this one, else the setting.
+ */
 function gasUnits(result: NoteResult): string[] {
   const word = (stated: readonly StatedValue[]): string | null => {
     let found: string | null = null;
     for (const s of stated) if (s.fieldId === GAS_UNIT && s.word !== null) found = s.word;
     return found;
   };
+  /** The one unit the bare gas pressures of a timepoint were read in; null when none is bare, or they differ. */
+  const readIn = (stated: readonly StatedValue[]): string | null => {
+    let found: string | null = null;
+    for (const s of stated) {
+      if (s.field.bare !== 'gas' || !s.unitImplied || s.readUnit === null) continue;
+      if (found !== null && found !== s.readUnit) return null;
+      found = s.readUnit;
+    }
+    return found;
+  };
   let unit = word(result.analysis.timeline.header) ?? result.settings.gasUnit;
   return result.analysis.timeline.timepoints.map((tp) => {
     unit = word(tp.stated) ?? unit;
-    return unit;
+    return readIn(tp.stated) ?? unit;
   });
 }
 
-function fieldColumns(field: FieldDef, index: number): Column[] {
-  const base = { kind: 'field' as const, source: field.id };
+/**
+ * Fields that have a column per kind of sample where the sample changes what the value is: base
+ * excess from an arterial gas (`abg`) and from a venous one (`vbg`) are two values (LOINC codes
+ * them apart, and FHIR exports both), which one cell written last would lose one of. The field's
+ * own column holds the value of its first section here, and `SECTION_COLUMNS` in `ADDED_LATER`
+ * the others. Lactate and haemoglobin are the same analyte in every sample and keep one column.
+ */
+const COLUMN_SECTION: Readonly<Record<string, SectionId>> = { base_excess: 'abg' };
+
+/** What the field's own column of `COLUMN_SECTION` says, after the field's description. */
+const SECTION_NOTE: Readonly<Record<string, string>> = {
+  base_excess: ' From an `abg` line (arterial); a `vbg` line\'s base excess is in `base_excess_venous_mmol_L`, so both are kept when a timepoint states both.',
+};
+
+/**
+ * Fields stated on several kinds of line whose one cell holds the value written last at the
+ * timepoint (FHIR gives each its own Observation), said in their column's description.
+ */
+const LAST_WRITTEN_NOTE: Readonly<Record<string, string>> = {
+  lactate: ' The same analyte on an `abg`, a `vbg` and a `labs` line: when a timepoint states it on more than one, the one written last is in the cell (FHIR gives each its own Observation).',
+  hb: ' The same analyte on a `labs`, an `abg` and a `vbg` line: when a timepoint states it on more than one, the one written last is in the cell (FHIR gives each its own Observation).',
+};
+
+/**
+ * The usable value of a field stated at a timepoint on a line of one section: the last one written
+ * there (an earlier one in the same section is replaced, PN206); null when none, or not usable.
+ * For measurements only, which are never carried.
+ */
+function statedInSection(tp: Timepoint, fieldId: string, section: SectionId): number | null {
+  const stated = tp.stated;
+  for (let i = stated.length - 1; i >= 0; i--) {
+    const s = stated[i]!;
+    if (s.fieldId === fieldId && s.section === section) return s.usable ? finite(s.value) : null;
+  }
+  return null;
+}
+
+function fieldColumns(field: FieldDef, index: number, onlySection: SectionId | null = null): Column[] {
+  const base = { kind: 'field' as const, source: field.id, section: null };
   if (field.id === GAS_UNIT) {
     // The timeline keeps the gas unit apart from the values in force: it is how bare numbers are read.
-    return [{ ...base, name: field.id, description: `${field.label}: ${field.description} The note's \`units gas\` in force, else the gasUnit setting.`, unit: null, ucum: null, type: 'string', part: null, cell: (c) => c.gasUnit }];
+    return [{ ...base, name: field.id, description: `${field.label}: ${field.description} The unit the bare gas pressures stated at the timepoint were read in (a \`units gas\` line counts from its line on), else the note's \`units gas\` in force at the end of the timepoint, else the gasUnit setting.`, unit: null, ucum: null, type: 'string', part: null, cell: (c) => c.gasUnit }];
   }
   if (field.kind === 'word') {
     return [{ ...base, name: field.id, description: `${field.label}: ${field.description}`, unit: null, ucum: null, type: 'string', part: null, cell: (c) => c.inputs[index]?.stated.word ?? null }];
@@ -196,17 +260,36 @@ function fieldColumns(field: FieldDef, index: number): Column[] {
     });
     return [part('systolic', 0), part('diastolic', 1)];
   }
+  const section = onlySection ?? COLUMN_SECTION[field.id] ?? null;
+  if (section !== null && section !== COLUMN_SECTION[field.id]) {
+    // A column of its own for the field stated on another kind of line (`base_excess_venous_mmol_L`).
+    return [{
+      ...base,
+      name: `${field.id}_${SECTION_WORD[section] ?? section}_${slug}`,
+      description: `${field.label} (${SECTION_WORD[section] ?? section}): ${field.description} From a \`${section}\` line; that of an \`${COLUMN_SECTION[field.id] ?? section}\` line is in \`${field.id}_${slug}\`.`,
+      unit,
+      ucum,
+      type: 'number',
+      part: null,
+      section,
+      cell: (c) => statedInSection(c.timepoint, field.id, section),
+    }];
+  }
   return [{
     ...base,
     name: slug ? `${field.id}_${slug}` : field.id,
-    description: `${field.label}: ${field.description}`,
+    description: `${field.label}: ${field.description}${SECTION_NOTE[field.id] ?? LAST_WRITTEN_NOTE[field.id] ?? ''}`,
     unit,
     ucum,
     type: 'number',
     part: null,
-    cell: (c) => finite(c.inputs[index]?.stated.value),
+    section,
+    cell: section === null ? (c) => finite(c.inputs[index]?.stated.value) : (c) => statedInSection(c.timepoint, field.id, section),
   }];
 }
+
+/** The word a column of a field stated on another kind of line takes after the field's id. */
+const SECTION_WORD: Readonly<Partial<Record<SectionId, string>>> = { vbg: 'venous' };
 
 /**
  * Descriptions of derived values whose formula is the value itself (`{PB}`), which would say
@@ -230,7 +313,7 @@ function derivedColumns(def: (typeof DERIVED)[number], fieldIds: ReadonlySet<str
   const index = DERIVED_INDEX.get(def.id)!;
   const id = fieldIds.has(def.id) ? `${def.id}_derived` : def.id;
   const slug = unitSlug(def.unit);
-  const base = { kind: 'derived' as const, source: def.id, unit: unitForPeople(def.unit), ucum: ucumCode(def.unit), type: 'number' as const };
+  const base = { kind: 'derived' as const, source: def.id, section: null, unit: unitForPeople(def.unit), ucum: ucumCode(def.unit), type: 'number' as const };
   if (RANGE_DERIVED_IDS.has(def.id)) {
     const end = (which: 'low' | 'high'): Column => ({
       ...base,
@@ -264,6 +347,7 @@ function summaryColumns(): Column[] {
     kind: 'summary',
     source: null,
     part: null,
+    section: null,
     cell: (c) => {
       let n = 0;
       for (const f of c.findings) if (f.severity === severity) n++;
@@ -280,6 +364,7 @@ function summaryColumns(): Column[] {
       kind: 'summary',
       source: null,
       part: null,
+      section: null,
       cell: (c) => {
         let ids = '';
         for (let k = 0; k < FIELDS.length; k++) {
@@ -300,25 +385,28 @@ function summaryColumns(): Column[] {
  * after every earlier column, in the order added, so a reader that counts columns finds the old
  * ones where they were.
  */
-const ADDED_LATER: readonly { readonly kind: 'field' | 'derived'; readonly id: string }[] = [
+const ADDED_LATER: readonly { readonly kind: 'field' | 'derived'; readonly id: string; readonly section?: SectionId }[] = [
   { kind: 'derived', id: 'mechanical_power_surrogate' },
   { kind: 'field', id: 'amplitude' },
+  // A venous base excess, which the arterial one's column kept before only when no abg line stated one.
+  { kind: 'field', id: 'base_excess', section: 'vbg' },
 ];
 
 function buildColumns(): readonly Column[] {
   const fieldIds = new Set(FIELDS.map((f) => f.id));
-  const laterFields = new Set(ADDED_LATER.filter((a) => a.kind === 'field').map((a) => a.id));
+  const laterFields = new Set(ADDED_LATER.filter((a) => a.kind === 'field' && a.section === undefined).map((a) => a.id));
   const laterDerived = new Set(ADDED_LATER.filter((a) => a.kind === 'derived').map((a) => a.id));
   const columns = [
     ...timepointColumns(),
     ...FIELDS.flatMap((f, i) => (laterFields.has(f.id) ? [] : fieldColumns(f, i))),
     ...DERIVED.filter((d) => !laterDerived.has(d.id)).flatMap((d) => derivedColumns(d, fieldIds)),
     ...summaryColumns(),
-    ...ADDED_LATER.flatMap(({ kind, id }) => {
+    ...ADDED_LATER.flatMap(({ kind, id, section }) => {
       if (kind === 'field') {
         const index = FIELDS.findIndex((f) => f.id === id);
         if (index < 0) throw new Error(`export column for ${id}: no such field`);
-        return fieldColumns(FIELDS[index]!, index);
+        if (section !== undefined && !FIELDS[index]!.sections.includes(section)) throw new Error(`export column for ${id} on ${section} lines: the field is not stated there`);
+        return fieldColumns(FIELDS[index]!, index, section ?? null);
       }
       const def = DERIVED.find((d) => d.id === id);
       if (!def) throw new Error(`export column for ${id}: no such derived value`);

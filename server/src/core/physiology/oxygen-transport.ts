@@ -62,7 +62,8 @@ export function oxygenDelivery(coLPerMin: number, cao2MlPerDl: number): number |
  * - 'cannula': 0.21 + 0.04 × flow, for 0 < flow ≤ 6 L/min (`nasal-cannula-fio2`).
  * - 'mask' (simple face mask): 0.35 at 5 L/min to 0.55 at 10 L/min, linear between, for
  *   5 ≤ flow ≤ 10 L/min; below 5 L/min a simple mask risks rebreathing CO2 (`simple-mask-fio2`).
- * `null` outside the rule's flow range or for an unknown device.
+ * `null` outside the rule's flow range or for an unknown device. Worked out in percent and divided
+ * by 100 once, so a whole or half flow gives the rule's decimal exactly (0.33, not 0.32999999999999996).
  */
 export function fio2EstimateLowFlow(device: LowFlowDevice, flowLPerMin: number): number | null {
   if (!allFinite(flowLPerMin)) return null;
@@ -70,12 +71,14 @@ export function fio2EstimateLowFlow(device: LowFlowDevice, flowLPerMin: number):
     case 'cannula': {
       const range = LOW_FLOW_RULE_RANGES_L_PER_MIN.cannula;
       if (flowLPerMin <= range.min || flowLPerMin > range.max) return null;
-      return finiteOrNull(0.21 + 0.04 * flowLPerMin);
+      // Worked in percent and divided once, so that the estimate is the rule's number to the last
+      // digit (0.33 at 3 L/min, where 0.21 + 0.04 × 3 is 0.32999999999999996 in doubles).
+      return finiteOrNull((21 + 4 * flowLPerMin) / 100);
     }
     case 'mask': {
       const range = LOW_FLOW_RULE_RANGES_L_PER_MIN.mask;
       if (flowLPerMin < range.min || flowLPerMin > range.max) return null;
-      return finiteOrNull(0.35 + ((0.55 - 0.35) * (flowLPerMin - range.min)) / (range.max - range.min));
+      return finiteOrNull((35 + ((55 - 35) * (flowLPerMin - range.min)) / (range.max - range.min)) / 100);
     }
     default:
       return null;
