@@ -31,6 +31,9 @@ const TRUE_POSITIVES: readonly (readonly [string, readonly PrivacyHit[]])[] = [
   ['next of kin Jane Roe informed', [hit(NAME, 'Jane Roe')]],
   ['discussed with John Doe (son)', [hit(NAME, 'John Doe')]],
   ['wife Mary at the bedside', [hit(NAME, 'Mary')]],
+  // a nurse named by role, as a carer or a relative is
+  ['seen by Nurse Jones', [hit(NAME, 'Jones')]],
+  ['handed over to Staff Nurse Okoro at 19:00', [hit(NAME, 'Okoro')]],
   ['known as Johnny on the ward', [hit(NAME, 'Johnny')]],
   // surnames that are also eponyms count after a title or a naming word
   ['Dr Miller reviewed', [hit(NAME, 'Miller')]],
@@ -335,6 +338,10 @@ const TRUE_NEGATIVES: readonly string[] = [
   'Patient NIV HFNC',
   'NOK AWARE',
   'name Berlin, score Murray',
+  // a nurse's role, no name
+  'Nurse Practitioner review, Nurse Specialist aware',
+  'Nurse Led weaning, Nurse Escort for transfer',
+  'nurse In charge informed, Staff Nurse Aware',
 ];
 
 describe('privacy detectors: true positives', () => {

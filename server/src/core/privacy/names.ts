@@ -39,7 +39,8 @@ const NAMING_WORDS = new Set(['name', 'named', 'aka', 'surname', 'forename']);
  * with wife, Independent`).
  */
 const RELATIVES = new Set(['wife', 'husband', 'partner', 'son', 'daughter', 'mother', 'father', 'sister', 'brother']);
-const OTHER_STRONG_WORDS = new Set(['nok', 'carer']);
+/** Roles that name the person who holds them as a relative does (`carer Jo`, `Nurse Jones`). */
+const OTHER_STRONG_WORDS = new Set(['nok', 'carer', 'nurse']);
 const WEAK_WORDS = new Set(['patient', 'pt', 'called']);
 /** `by`, `with`, `to` are cues only after these words (`seen by`, `discussed with`, `spoke to`). */
 const VERBS_BEFORE_PREPOSITION = new Set(['seen', 'reviewed', 'discussed', 'examined', 'assessed', 'spoke', 'spoken', 'talked', 'referred', 'handed', 'accompanied', 'visited']);
@@ -70,6 +71,7 @@ const NOT_NAMES = new Set([
   'controlled', 'group', 'direction', 'safety', 'outcome', 'outcomes', 'experience', 'reported', 'centred', 'centered',
   'transport', 'transfer', 'advice', 'information', 'leaflet', 'consent', 'request', 'requested', 'plan', 'handover',
   'present', 'absent', 'visiting', 'visited', 'updated', 'phoned', 'rang', 'contacted', 'happy', 'concerned', 'worried', 'upset',
+  'led', 'escort', 'escorted',
   'agrees', 'agreed', 'understands', 'understood', 'wishes', 'prefers', 'wants', 'asked', 'asks', 'aware', 'attended', 'arrived',
   'left', 'gone', 'says', 'said', 'feels', 'felt', 'thinks', 'here', 'away', 'unavailable', 'available', 'unreachable',
   // teams, roles and places of care
