@@ -134,6 +134,10 @@ const TRUE_POSITIVES: readonly (readonly [string, readonly PrivacyHit[]])[] = [
   ['sticker 87654321 on the sample', [hit(RECORD, '87654321')]],
   ['MRN 1234567 per GP letter', [hit(RECORD, '1234567')]],
   ['hospital 1234567X', [hit(RECORD, '1234567X')]],
+  // a cue glued to its number by a colon or a full stop, as labels and wristbands print them
+  ['MRN:00123456', [hit(RECORD, '00123456')]],
+  ['NHS:9991234578, hosp no.48812', [hit(RECORD, '9991234578'), hit(RECORD, '48812')]],
+  ['tel:07700 900123', [hit(PHONE, '07700 900123')]],
   // postal codes
   ['lives near AA9A 9AA', [hit(POSTAL, 'AA9A 9AA')]],
   ['moved from Fernleigham, IL 00427', [hit(POSTAL, '00427')]],
@@ -175,6 +179,7 @@ const TRUE_NEGATIVES: readonly string[] = [
   'nebs x4, x2 doses 12 hrs apart',
   '1/7 history of cough, 3/52 of breathlessness',
   'I:E 1:2, ratio 1:2.5',
+  'adrenaline 1:100000 with lidocaine, obs 07:40:12345',
   'age 64 y, weight 71 kg, BMI 26.7',
   // doses, drugs and devices
   'salbutamol 5 mg nebs x4, ipratropium 500 mcg',
