@@ -31,6 +31,9 @@ const TRUE_POSITIVES: readonly (readonly [string, readonly PrivacyHit[]])[] = [
   ['next of kin Jane Roe informed', [hit(NAME, 'Jane Roe')]],
   ['discussed with John Doe (son)', [hit(NAME, 'John Doe')]],
   ['wife Mary at the bedside', [hit(NAME, 'Mary')]],
+  // a surname in capitals, a comma and the given name after `patient`, as wristbands print it
+  ['Patient: SMITH, John', [hit(NAME, 'SMITH, John')]],
+  ['pt ROE, Jane on the ward', [hit(NAME, 'ROE, Jane')]],
   // a nurse named by role, as a carer or a relative is
   ['seen by Nurse Jones', [hit(NAME, 'Jones')]],
   ['handed over to Staff Nurse Okoro at 19:00', [hit(NAME, 'Okoro')]],
@@ -343,6 +346,9 @@ const TRUE_NEGATIVES: readonly string[] = [
   'Patient NIV HFNC',
   'NOK AWARE',
   'name Berlin, score Murray',
+  // after `patient`, one word, a comma and another are no name unless the first is a surname in capitals
+  'patient: Anxious, Tearful',
+  'Patient: NIV, Settled overnight',
   // a nurse's role, no name
   'Nurse Practitioner review, Nurse Specialist aware',
   'Nurse Led weaning, Nurse Escort for transfer',
