@@ -1,7 +1,7 @@
 /**
  * Minimal typing for the parts of @lhncbc/ucum-lhc (a general-purpose UCUM library, which ships no
  * TypeScript declarations) that the tests use: `convertUnitTo` to cross-check unit conversions
- * (physiology, kPa readings), and `validateUnitString`, which reads a UCUM code without converting
+ * (physiology, kPa readings; between mass and substance concentrations given a molecular weight), and `validateUnitString`, which reads a UCUM code without converting
  * it, so special units such as [pH] (which `convertUnitTo` cannot convert) are checked too (exports).
  */
 declare module '@lhncbc/ucum-lhc' {
@@ -17,7 +17,7 @@ declare module '@lhncbc/ucum-lhc' {
   }
   export class UcumLhcUtils {
     static getInstance(): UcumLhcUtils;
-    convertUnitTo(fromUnitCode: string, fromVal: number, toUnitCode: string): UcumConversionResult;
+    convertUnitTo(fromUnitCode: string, fromVal: number, toUnitCode: string, options?: { readonly molecularWeight?: number }): UcumConversionResult;
     validateUnitString(unit: string, suggest?: boolean): UcumValidation;
   }
 }

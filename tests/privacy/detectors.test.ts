@@ -31,6 +31,12 @@ const TRUE_POSITIVES: readonly (readonly [string, readonly PrivacyHit[]])[] = [
   ['next of kin Jane Roe informed', [hit(NAME, 'Jane Roe')]],
   ['discussed with John Doe (son)', [hit(NAME, 'John Doe')]],
   ['wife Mary at the bedside', [hit(NAME, 'Mary')]],
+  // a surname in capitals, a comma and the given name after `patient`, as wristbands print it
+  ['Patient: SMITH, John', [hit(NAME, 'SMITH, John')]],
+  ['pt ROE, Jane on the ward', [hit(NAME, 'ROE, Jane')]],
+  // a nurse named by role, as a carer or a relative is
+  ['seen by Nurse Jones', [hit(NAME, 'Jones')]],
+  ['handed over to Staff Nurse Okoro at 19:00', [hit(NAME, 'Okoro')]],
   ['known as Johnny on the ward', [hit(NAME, 'Johnny')]],
   // surnames that are also eponyms count after a title or a naming word
   ['Dr Miller reviewed', [hit(NAME, 'Miller')]],
@@ -131,6 +137,10 @@ const TRUE_POSITIVES: readonly (readonly [string, readonly PrivacyHit[]])[] = [
   ['sticker 87654321 on the sample', [hit(RECORD, '87654321')]],
   ['MRN 1234567 per GP letter', [hit(RECORD, '1234567')]],
   ['hospital 1234567X', [hit(RECORD, '1234567X')]],
+  // a cue glued to its number by a colon or a full stop, as labels and wristbands print them
+  ['MRN:00123456', [hit(RECORD, '00123456')]],
+  ['NHS:9991234578, hosp no.48812', [hit(RECORD, '9991234578'), hit(RECORD, '48812')]],
+  ['tel:07700 900123', [hit(PHONE, '07700 900123')]],
   // postal codes
   ['lives near AA9A 9AA', [hit(POSTAL, 'AA9A 9AA')]],
   ['moved from Fernleigham, IL 00427', [hit(POSTAL, '00427')]],
@@ -172,6 +182,7 @@ const TRUE_NEGATIVES: readonly string[] = [
   'nebs x4, x2 doses 12 hrs apart',
   '1/7 history of cough, 3/52 of breathlessness',
   'I:E 1:2, ratio 1:2.5',
+  'adrenaline 1:100000 with lidocaine, obs 07:40:12345',
   'age 64 y, weight 71 kg, BMI 26.7',
   // doses, drugs and devices
   'salbutamol 5 mg nebs x4, ipratropium 500 mcg',
@@ -335,6 +346,13 @@ const TRUE_NEGATIVES: readonly string[] = [
   'Patient NIV HFNC',
   'NOK AWARE',
   'name Berlin, score Murray',
+  // after `patient`, one word, a comma and another are no name unless the first is a surname in capitals
+  'patient: Anxious, Tearful',
+  'Patient: NIV, Settled overnight',
+  // a nurse's role, no name
+  'Nurse Practitioner review, Nurse Specialist aware',
+  'Nurse Led weaning, Nurse Escort for transfer',
+  'nurse In charge informed, Staff Nurse Aware',
 ];
 
 describe('privacy detectors: true positives', () => {

@@ -4,7 +4,7 @@
  * conversion happens only at the edges (parsing and display).
  */
 
-import { MMHG_PER_KPA, PA_PER_CMH2O } from '../physiology/units';
+import { GLUCOSE_MG_PER_DL_PER_MMOL_L, MMHG_PER_KPA, PA_PER_CMH2O } from '../physiology/units';
 import { squeezeBlanks } from '../syntax/blanks';
 
 export type Dimension =
@@ -89,6 +89,10 @@ export const UNITS: readonly UnitDef[] = [
   unit('g/L', 'mass-concentration', 'g/L', part(10), ['g/l']),
   unit('mmol/L', 'substance-concentration', 'mmol/L', linear(1), ['mmol/l']),
   unit('mEq/L', 'substance-concentration', 'meq/L', linear(1), ['meq/l']),
+  // Glucose's mass concentration, read by its molar mass (18.016 mg/dL per mmol/L): a unit of glucose
+  // alone, which no other field may list (lactate, say, has a molar mass of its own). Divided
+  // (mg/dL ÷ 18.016), so that a value read in mg/dL and shown in mg/dL is the number written.
+  unit('mg/dL', 'substance-concentration', 'mg/dL', part(GLUCOSE_MG_PER_DL_PER_MMOL_L), ['mg/dl']),
   unit('cm', 'length', 'cm', linear(1), []),
   unit('m', 'length', 'm', linear(100), ['metres', 'meters']),
   unit('in', 'length', '[in_i]', linear(2.54), ['inch', 'inches']),

@@ -14,6 +14,8 @@ export const SOURCES = Object.freeze({
     'Thompson A, Taylor BN. Guide for the Use of the International System of Units (SI). NIST Special Publication 811, 2008 edition, appendix B (conversion factors: conventional mmHg = 133.3224 Pa, conventional cmH2O = 98.0665 Pa, international foot = 0.3048 m, degree Fahrenheit) (from memory).',
   'si-brochure':
     'Bureau International des Poids et Mesures. The International System of Units (SI Brochure), 9th edition, 2019: standard atmosphere 101 325 Pa, kelvin and degree Celsius (from memory).',
+  'glucose-molar-mass':
+    'Molar mass of glucose C6H12O6 = 6 × 12.011 + 12 × 1.008 + 6 × 15.999 = 180.16 g/mol, from the conventional standard atomic weights of IUPAC/CIAAW (Prohaska T et al. Standard atomic weights of the elements 2021 (IUPAC Technical Report). Pure Appl Chem 2022;94(5):573–600) (from memory).',
 } as const);
 
 /** Pascals in one conventional millimetre of mercury (13.5951 g/cm³ × 9.80665 m/s² × 1 mm). Source: `nist-sp811`. */
@@ -32,6 +34,11 @@ export const MMHG_PER_CMH2O = 0.735559;
 export const PA_PER_ATMOSPHERE = 101325;
 /** Metres in one international foot (exact). Source: `nist-sp811`. */
 export const METRES_PER_FOOT = 0.3048;
+/**
+ * mg/dL of glucose in one mmol/L: 180.16 g/mol × 1 mmol/L = 180.16 mg/L = 18.016 mg/dL. For
+ * glucose only: another substance has another molar mass. Source: `glucose-molar-mass`.
+ */
+export const GLUCOSE_MG_PER_DL_PER_MMOL_L = 18.016;
 /** Absolute zero in degrees Celsius. Source: `si-brochure`. */
 export const ABSOLUTE_ZERO_CELSIUS = -273.15;
 

@@ -39,8 +39,11 @@ const NAMING_WORDS = new Set(['name', 'named', 'aka', 'surname', 'forename']);
  * with wife, Independent`).
  */
 const RELATIVES = new Set(['wife', 'husband', 'partner', 'son', 'daughter', 'mother', 'father', 'sister', 'brother']);
-const OTHER_STRONG_WORDS = new Set(['nok', 'carer']);
+/** Roles that name the person who holds them as a relative does (`carer Jo`, `Nurse Jones`). */
+const OTHER_STRONG_WORDS = new Set(['nok', 'carer', 'nurse']);
 const WEAK_WORDS = new Set(['patient', 'pt', 'called']);
+/** The weak cues after which a surname in capitals, a comma and a given name are a name (`Patient: SMITH, John`). */
+const PATIENT_WORDS = new Set(['patient', 'pt']);
 /** `by`, `with`, `to` are cues only after these words (`seen by`, `discussed with`, `spoke to`). */
 const VERBS_BEFORE_PREPOSITION = new Set(['seen', 'reviewed', 'discussed', 'examined', 'assessed', 'spoke', 'spoken', 'talked', 'referred', 'handed', 'accompanied', 'visited']);
 /** `name` is no cue after these (`drug name Ventolin`, `brand name`). */
@@ -70,6 +73,7 @@ const NOT_NAMES = new Set([
   'controlled', 'group', 'direction', 'safety', 'outcome', 'outcomes', 'experience', 'reported', 'centred', 'centered',
   'transport', 'transfer', 'advice', 'information', 'leaflet', 'consent', 'request', 'requested', 'plan', 'handover',
   'present', 'absent', 'visiting', 'visited', 'updated', 'phoned', 'rang', 'contacted', 'happy', 'concerned', 'worried', 'upset',
+  'led', 'escort', 'escorted',
   'agrees', 'agreed', 'understands', 'understood', 'wishes', 'prefers', 'wants', 'asked', 'asks', 'aware', 'attended', 'arrived',
   'left', 'gone', 'says', 'said', 'feels', 'felt', 'thinks', 'here', 'away', 'unavailable', 'available', 'unreachable',
   // teams, roles and places of care
@@ -492,13 +496,10 @@ export function findNames(text: string, runs: readonly Run[], out: PrivacyMatch[
     while (words.length > 0 && words[words.length - 1]!.initial) words.pop();
     const full = words.filter((w) => !w.initial).length;
     if (full === 0) continue;
-    if (weak && words.length < 2) {
-      if (found.kind !== 'relative') continue;
-      if (heading < 0) heading = firstHistoryHeading(runs);
-      if (!isLoneNameAfterRelative(text, words[0]!, heading < i)) continue;
-    }
-    // `name: ROE, Jane`, `Name - Roe, Jane`: a surname, a comma, then the given names.
-    if (naming && words.length === 1) {
+    // `name: ROE, Jane`, `Name - Roe, Jane`: a surname, a comma, then the given names; after
+    // `patient` or `pt` only with the surname in capitals (`Patient: SMITH, John`, as wristbands
+    // print it; not `patient: Anxious, Tearful`).
+    if (words.length === 1 && (naming || (PATIENT_WORDS.has(found.label.toLowerCase()) && isCapitalsName(text.slice(words[0]!.start, words[0]!.end))))) {
       const next = runs[j];
       const comma = next ? text.slice(prevEnd, next.start) : '';
       const given = comma === ',' || comma === ', ' ? nameWordAt(text, runs, j, true) : null;
@@ -506,6 +507,11 @@ export function findNames(text: string, runs: readonly Run[], out: PrivacyMatch[
         words.push(given);
         j = given.next;
       }
+    }
+    if (weak && words.length < 2) {
+      if (found.kind !== 'relative') continue;
+      if (heading < 0) heading = firstHistoryHeading(runs);
+      if (!isLoneNameAfterRelative(text, words[0]!, heading < i)) continue;
     }
     out.push(match('name', text, words[0]!.start, words[words.length - 1]!.end, found.label));
     i = j - 1;

@@ -57,12 +57,17 @@ export function numberCueBefore(text: string, start: number): { readonly kind: '
   return null;
 }
 
-/** Can a candidate start at `i`? Not inside a word, a decimal, a range or a fraction. */
+/**
+ * Can a candidate start at `i`? Not inside a word, a decimal, a time, a range or a fraction. A
+ * colon or a full stop after a letter ends a label or an abbreviation (`MRN:1234567`, `no.48812`),
+ * not a number: only after a digit do they join two parts of one (`07:40`, `7.35`).
+ */
 function startsCleanly(text: string, i: number): boolean {
   if (i === 0) return true;
   const p = text.charAt(i - 1);
   if (isAlnumAt(text, i - 1) || p === '/' || p === '\\' || p === '+' || p === '−') return false;
-  if ((p === '.' || p === ',' || p === ':' || p === '-') && i >= 2 && isAlnumAt(text, i - 2)) return false;
+  if ((p === ':' || p === '.') && i >= 2 && isDigitAt(text, i - 2)) return false;
+  if ((p === ',' || p === '-') && i >= 2 && isAlnumAt(text, i - 2)) return false;
   return true;
 }
 
