@@ -54,17 +54,11 @@ export function flowOnRoomAir(values: ValuesInForce): number | null {
 const ROOM_AIR_FIO2 = 0.21;
 
 /**
- * The FiO2 in force when it was written on a room-air line and is above the 0.21 of air
- * (`oxygen room air, fio2 0.4`); null otherwise. Room air is an FiO2 of 0.21, so the device or the
- * FiO2 is wrong (PN316), and neither is used: the FiO2 written would read a patient on air as on
- * oxygen, and 0.21 would pass over an FiO2 that may be the true one.
+ * Whether an FiO2 is one of an oxygen line whose device is room air, and above 0.21 (beyond
+ * rounding): `oxygen room air, fio2 0.4`. Room air is an FiO2 of 0.21, so the device or the FiO2 is
+ * wrong (PN316), and neither is used: the FiO2 written would read a patient on air as on oxygen,
+ * and 0.21 would pass over an FiO2 that may be the true one.
  */
-export function fio2OnRoomAir(values: ValuesInForce): InputValue | null {
-  const fio2 = values.get('fio2');
-  return fio2 !== undefined && isRoomAirContradiction(fio2, values) ? fio2 : null;
-}
-
-/** Whether an FiO2 is one of an oxygen line whose device is room air, and above 0.21 (beyond rounding). */
 export function isRoomAirContradiction(fio2: InputValue, values: ValuesInForce): boolean {
   const stated = fio2.stated;
   if (stated.section !== 'oxygen' || !stated.usable || stated.value === null || !(stated.value > ROOM_AIR_FIO2 + 1e-9)) return false;
@@ -288,7 +282,7 @@ export class DeriveContext {
     const stated = this.field('fio2', 'FiO2');
     // An FiO2 above 0.21 on a room-air line (PN316): neither it nor the 0.21 of air is used.
     // The device is asked of this context first (read once for every formula of the gas).
-    if (stated) return stated.value > ROOM_AIR_FIO2 && this.word('device')?.word === 'room air' && isRoomAirContradiction(this.input('fio2')!, this.timepoint.values) ? null : stated;
+    if (stated) return this.word('device')?.word === 'room air' && isRoomAirContradiction(this.input('fio2')!, this.timepoint.values) ? null : stated;
     // Several formulas of a gas read the FiO2: the room-air term is worked out once.
     if (this.airFio2 === undefined) this.airFio2 = this.roomAirFio2();
     return this.airFio2;
