@@ -136,7 +136,7 @@ describe('units', () => {
     expect(units('abg po2 71 |')).toEqual(['mmHg', 'kPa']);
     expect(units('vitals temp 38.2 |')).toEqual(['C', 'F']);
     expect(units('vent fio2 40 |')).toEqual(['%']);
-    expect(units('labs hb 11 |')).toEqual(['g/dL', 'g/L']);
+    expect(units('labs hb 11 |')).toEqual(['g/dL', 'g/L', 'mmol/L']);
     expect(complete('abg po2 71 |')[0]).toMatchObject({ kind: 'unit', detail: "PaO2 (the note's gas unit)" });
     expect(complete('vitals temp 38.2 |')[0]).toMatchObject({ kind: 'unit', detail: 'Temperature (default unit)' });
     // Units first, then keys not yet on the line.

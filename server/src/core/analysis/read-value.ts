@@ -5,7 +5,7 @@
  */
 import { canonicalWord, FIELDS, keysInSection, type FieldDef } from '../fields/registry';
 import { SECTIONS, type SectionId } from '../fields/sections';
-import { convert, unitById, UNITS, unitsForSpelling, type UnitDef } from '../fields/units';
+import { convert, HB_MMOL_PER_L, unitById, UNITS, unitsForSpelling, type UnitDef } from '../fields/units';
 import type { ItemNode, LineFix, PairValue, Span } from '../syntax/tree';
 import { inchesAfterFeet, pairNumbers, thousandsReading } from '../syntax/parser';
 import { scanNumber } from '../syntax/lexer';
@@ -504,5 +504,6 @@ function asFio2(item: ItemNode, candidates: readonly UnitDef[], written: number 
 export function displayUnit(id: string): string {
   if (id === 'fraction') return 'fraction';
   if (id === '%sat') return '%';
+  if (id === HB_MMOL_PER_L) return 'mmol/L';
   return id;
 }

@@ -4,7 +4,7 @@
  * conversion happens only at the edges (parsing and display).
  */
 
-import { GLUCOSE_MG_PER_DL_PER_MMOL_L, MMHG_PER_KPA, PA_PER_CMH2O } from '../physiology/units';
+import { GLUCOSE_MG_PER_DL_PER_MMOL_L, HB_G_PER_DL_PER_MMOL_L, MMHG_PER_KPA, PA_PER_CMH2O } from '../physiology/units';
 import { squeezeBlanks } from '../syntax/blanks';
 
 export type Dimension =
@@ -35,6 +35,9 @@ export interface UnitDef {
   /** Value in the dimension's base unit → value in this unit. */
   readonly fromBase: (value: number) => number;
 }
+
+/** The internal id of haemoglobin's mmol/L (a mass concentration by its molar mass), written `mmol/L`. */
+export const HB_MMOL_PER_L = 'mmolHb/L';
 
 /** Definitions of the units (exact where the unit is defined exactly). */
 /** Exact conversions from the definitions of the units (physiology/units.ts holds the constants). */
@@ -87,6 +90,10 @@ export const UNITS: readonly UnitDef[] = [
   unit('L/s', 'flow', 'L/s', linear(60), ['l/s', 'l/sec']),
   unit('g/dL', 'mass-concentration', 'g/dL', linear(1), ['g/dl']),
   unit('g/L', 'mass-concentration', 'g/L', part(10), ['g/l']),
+  // Haemoglobin in mmol/L (monomer basis, 16,114.5 g/mol: 1 mmol/L = 1.61145 g/dL), written `mmol/L` as
+  // any substance concentration, but a mass concentration here, so Hb stays in g/dL inside the core.
+  // Its id is internal (as `%sat` is): written and shown as `mmol/L` (`displayUnit`). Haemoglobin's alone.
+  unit(HB_MMOL_PER_L, 'mass-concentration', 'mmol/L', linear(HB_G_PER_DL_PER_MMOL_L), ['mmol/L', 'mmol/l']),
   unit('mmol/L', 'substance-concentration', 'mmol/L', linear(1), ['mmol/l']),
   unit('mEq/L', 'substance-concentration', 'meq/L', linear(1), ['meq/l']),
   // Glucose's mass concentration, read by its molar mass (18.016 mg/dL per mmol/L): a unit of glucose

@@ -16,6 +16,8 @@ export const SOURCES = Object.freeze({
     'Bureau International des Poids et Mesures. The International System of Units (SI Brochure), 9th edition, 2019: standard atmosphere 101 325 Pa, kelvin and degree Celsius (from memory).',
   'glucose-molar-mass':
     'Molar mass of glucose C6H12O6 = 6 × 12.011 + 12 × 1.008 + 6 × 15.999 = 180.16 g/mol, from the conventional standard atomic weights of IUPAC/CIAAW (Prohaska T et al. Standard atomic weights of the elements 2021 (IUPAC Technical Report). Pure Appl Chem 2022;94(5):573–600) (from memory).',
+  'haemoglobin-molar-mass':
+    'Haemoglobin as a substance concentration is counted per haem-carrying globin chain (the monomer), molar mass 16,114.5 g/mol, a quarter of the tetramer\'s 64,458 g/mol: the convention laboratories reporting Hb in mmol/L use (1 g/dL ≈ 0.6206 mmol/L) (from memory; a tetramer basis, 0.155 mmol/L per g/dL, is also met and is not the one read here).',
 } as const);
 
 /** Pascals in one conventional millimetre of mercury (13.5951 g/cm³ × 9.80665 m/s² × 1 mm). Source: `nist-sp811`. */
@@ -39,6 +41,13 @@ export const METRES_PER_FOOT = 0.3048;
  * glucose only: another substance has another molar mass. Source: `glucose-molar-mass`.
  */
 export const GLUCOSE_MG_PER_DL_PER_MMOL_L = 18.016;
+/** Molar mass of haemoglobin per haem-carrying chain (the monomer), g/mol. Source: `haemoglobin-molar-mass`. */
+export const HB_MONOMER_G_PER_MOL = 16114.5;
+/**
+ * g/dL of haemoglobin in one mmol/L (monomer basis): 16,114.5 g/mol × 1 mmol/L = 16.1145 g/L =
+ * 1.61145 g/dL. For haemoglobin only. Source: `haemoglobin-molar-mass`.
+ */
+export const HB_G_PER_DL_PER_MMOL_L = HB_MONOMER_G_PER_MOL / 10000;
 /** Absolute zero in degrees Celsius. Source: `si-brochure`. */
 export const ABSOLUTE_ZERO_CELSIUS = -273.15;
 

@@ -1,0 +1,85 @@
+// Haemoglobin in mmol/L, as many laboratories report it, beside g/dL and g/L. The substance
+// concentration is counted per haem-carrying chain (the monomer), molar mass 16,114.5 g/mol, a
+// quarter of the tetramer's 64,458 g/mol (from memory; the usual SI convention for haemoglobin),
+// so 1 mmol/L = 16.1145 g/L = 1.61145 g/dL and 1 g/dL ≈ 0.6206 mmol/L. The conversion is checked
+// against @lhncbc/ucum-lhc, given that molecular weight. A bare Hb is still read in g/dL.
+import { UcumLhcUtils } from '@lhncbc/ucum-lhc';
+import { describe, expect, it } from 'vitest';
+import { checkNote } from '../../server/src/core';
+import { timepointRows, toFhirBundle } from '../../server/src/core/export';
+import { FIELDS } from '../../server/src/core/fields/registry';
+import { convert, unitById, unitsForSpelling } from '../../server/src/core/fields/units';
+import { HB_G_PER_DL_PER_MMOL_L, HB_MONOMER_G_PER_MOL } from '../../server/src/core/physiology/units';
+import { formatAlternative, formatStated } from '../../server/src/core/present';
+
+const ucum = UcumLhcUtils.getInstance();
+
+function ucumHb(value: number, from: string, to: string): number {
+  const result = ucum.convertUnitTo(from, value, to, { molecularWeight: HB_MONOMER_G_PER_MOL });
+  expect(result.status, result.msg.join('; ')).toBe('succeeded');
+  return result.toVal ?? Number.NaN;
+}
+
+const HB_MMOL = unitsForSpelling('mmol/L').find((u) => u.dimension === 'mass-concentration')!;
+const hbOf = (text: string) => checkNote(text).analysis.timeline.timepoints[0]?.values.get('hb')?.stated;
+const codesOf = (text: string) => checkNote(text).findings.map((f) => f.code);
+
+describe('haemoglobin in mmol/L', () => {
+  it('converts by the molar mass of the monomer, 16,114.5 g/mol, as UCUM does given that molecular weight (from memory)', () => {
+    expect(HB_MONOMER_G_PER_MOL).toBe(16114.5);
+    expect(HB_G_PER_DL_PER_MMOL_L).toBeCloseTo(ucumHb(1, 'mmol/L', 'g/dL'), 9);
+    // 1 g/dL ≈ 0.6206 mmol/L (the factor quoted for the monomer basis; from memory).
+    expect(convert(1, unitById('g/dL')!, HB_MMOL)).toBeCloseTo(0.6206, 4);
+    for (const mmol of [2.5, 5, 8, 8.7, 11]) {
+      expect(convert(mmol, HB_MMOL, unitById('g/dL')!)).toBeCloseTo(ucumHb(mmol, 'mmol/L', 'g/dL'), 9);
+    }
+    expect(HB_MMOL.ucum).toBe('mmol/L');
+  });
+
+  it('is a unit of haemoglobin alone: no other field lists it', () => {
+    expect(FIELDS.filter((f) => f.units?.includes(HB_MMOL.id)).map((f) => f.id)).toEqual(['hb']);
+  });
+
+  it('reads `hb 8.0 mmol/L` as 12.9 g/dL, with no finding, and shows both units', () => {
+    for (const text of ['@ 08:00\nlabs hb 8.0 mmol/L', '@ 08:00\nabg ph 7.40, hb 8.0 mmol/l']) {
+      const hb = hbOf(text)!;
+      expect(hb.value).toBeCloseTo(8 * 1.61145, 9);
+      expect(hb.unit).toBe('g/dL');
+      expect(codesOf(text)).toEqual([]);
+      expect(formatStated(hb)).toBe('12.9 g/dL');
+      expect(formatAlternative(hb)).toBe('8.0 mmol/L');
+    }
+  });
+
+  it('does not take an Hb in mmol/L as low: 8 mmol/L is ordinary, 8 g/dL is not read from it', () => {
+    expect(hbOf('@ 08:00\nlabs hb 8 mmol/L')!.value).toBeGreaterThan(12);
+    // A bare Hb is still read in g/dL.
+    expect(hbOf('@ 08:00\nlabs hb 8')!.value).toBe(8);
+    expect(hbOf('@ 08:00\nlabs hb 8')!.readUnit).toBe('g/dL');
+    expect(codesOf('@ 08:00\nlabs hb 8')).toEqual([]);
+  });
+
+  it('bounds the converted value: 80 mmol/L (129 g/dL) is impossible, not read', () => {
+    const text = '@ 08:00\nlabs hb 80 mmol/L';
+    expect(codesOf(text)).toContain('PN301');
+    expect(hbOf(text)!.usable).toBe(false);
+  });
+
+  it('keeps a bare Hb of 2.5 in g/dL (unusual, reported), as before mmol/L was accepted', () => {
+    const hb = hbOf('@ 08:00\nlabs hb 2.5')!;
+    expect(hb.readUnit).toBe('g/dL');
+    expect(hb.unitDoubt).toBeNull();
+    expect(hb.usable).toBe(true);
+  });
+
+  it('exports the Hb in g/dL (column hb_g_dL; FHIR 718-7 with UCUM g/dL), converted from mmol/L', () => {
+    const result = checkNote('@ 08:00\nlabs hb 8.0 mmol/L');
+    const row = timepointRows('n.pneu', result, { redactProse: false, shiftDays: 0 })[0]!;
+    expect(row['hb_g_dL']).toBeCloseTo(12.8916, 4);
+    const bundle = toFhirBundle('n.pneu', result, { redactProse: false, shiftDays: 0 });
+    const obs = (bundle.entry ?? []).map((e) => e.resource).find((o) => o.code.text === 'Haemoglobin')!;
+    expect(obs.code.coding?.[0]?.code).toBe('718-7');
+    expect(obs.valueQuantity).toMatchObject({ unit: 'g/dL', system: 'http://unitsofmeasure.org', code: 'g/dL' });
+    expect(obs.valueQuantity!.value).toBeCloseTo(12.8916, 4);
+  });
+});
