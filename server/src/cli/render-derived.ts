@@ -2,6 +2,7 @@
 import type { Timepoint } from '../core/analysis/model';
 import type { TimepointDerivation } from '../core/derive/model';
 import { withheldByReason } from '../core/derive/registry';
+import { hbSourceOf } from '../core/derive/oxygen-transport';
 import { showsKpa } from '../core/present';
 import { wordList } from '../core/util/format';
 import { kpaText, numberText } from '../core/service/derived-hover';
@@ -29,7 +30,9 @@ export function renderDerived(tp: Timepoint, d: TimepointDerivation | undefined,
       if (v.unit === 'mmHg' && kpa) {
         return `${v.short} ${p.bold(kpaText(v))} kPa (${number} mmHg)${marks}`;
       }
-      return `${v.short} ${p.bold(number)}${v.unit ? ` ${v.unit}` : ''}${marks}`;
+      // The oxygen content says whose Hb it used (the gas line's, a labs line's).
+      const hb = v.id === 'cao2' ? hbSourceOf(v, tp) : null;
+      return `${v.short} ${p.bold(number)}${v.unit ? ` ${v.unit}` : ''}${marks}${hb ? ` (Hb of ${hb})` : ''}`;
     });
     lines.push(`  ${p.green('derived'.padEnd(8))} ${parts.join(p.dim(' · '))}`);
   }

@@ -4,6 +4,7 @@
  * several formulas share (FiO2, barometric pressure, respiratory rate).
  */
 import type { InputValue, Timepoint, ValuesInForce } from '../analysis/model';
+import type { SectionId } from '../fields/sections';
 import { fieldById } from '../fields/registry';
 import { displayUnit } from '../analysis/read-value';
 import type { Settings } from '../settings';
@@ -196,6 +197,22 @@ export class DeriveContext {
     const known = r.term;
     if (known && (name === undefined ? known.name === defaultTermName(id) : known.name === name)) return known;
     return (r.term = termOf(input, name));
+  }
+
+  /**
+   * The last usable value of a field stated at this timepoint on a line of `section` (the Hb of
+   * the arterial gas line where a labs line states one too), as a formula input; null when none.
+   * A new term each time: for the few formulas that choose among the lines of a timepoint.
+   */
+  fieldOn(id: string, section: SectionId, name?: string): Term | null {
+    const stated = this.timepoint.stated;
+    for (let i = stated.length - 1; i >= 0; i--) {
+      const s = stated[i]!;
+      if (s.fieldId !== id || s.section !== section || !s.hereOnly) continue;
+      if (!s.usable || s.value === null) return null;
+      return termOf({ stated: s, origin: { kind: 'here', line: s.line, span: s.item.span } }, name);
+    }
+    return null;
   }
 
   /**

@@ -1,6 +1,9 @@
 /** Derived values of oxygen transport, and the low-flow FiO2 estimate. */
 import { SOURCES, arterialO2Content, fio2EstimateLowFlow, oxygenDelivery } from '../physiology';
-import { defineDerived, type Term } from './context';
+import type { Timepoint } from '../analysis/model';
+import { formatStated } from '../present';
+import { defineDerived, type DeriveContext, type Term } from './context';
+import type { DerivedValue } from './model';
 import { pao2Withheld } from './gas-exchange';
 
 export const cao2 = defineDerived({
@@ -14,7 +17,7 @@ export const cao2 = defineDerived({
   source: SOURCES['oxygen-content'],
   anchors: ['hb', 'sao2'],
   compute(c) {
-    const hb = c.field('hb', 'Hb');
+    const hb = haemoglobinOfGas(c);
     const sat = c.field('sao2', 'SaO2') ?? c.field('spo2', 'SaO2');
     const pa = c.field('pao2', 'PaO2');
     if (!hb) return { kind: 'na', reason: 'needs a haemoglobin' };
@@ -22,7 +25,8 @@ export const cao2 = defineDerived({
     const withheld = pao2Withheld(c, pa);
     if (withheld) return withheld;
     const hufner: Term = { name: 'Hüfner', value: c.settings.hufnerConstant, unit: 'mL/g', decimals: 2, origin: { kind: 'default', description: 'Hüfner constant (setting pneumark.hufnerConstant)' } };
-    const notes = sat.fieldId === 'spo2' ? ['SpO2 used in place of SaO2'] : [];
+    const notes = hbNotUsed(c, hb);
+    if (sat.fieldId === 'spo2') notes.push('SpO2 used in place of SaO2');
     return c.value(arterialO2Content(hb.value, sat.value / 100, pa.value, hufner.value), [hufner, hb, sat, pa], { notes });
   },
 });
@@ -67,3 +71,46 @@ export const fio2Estimated = defineDerived({
     return c.value(value, [flow], { estimate: true, formula, notes: ['a rough estimate: the true FiO2 depends on breathing pattern; not used for P/F or the A–a gradient'] });
   },
 });
+
+/** How the Hb of a gas line is named among a formula's inputs. */
+const GAS_HB_NOTE = 'abg line, measured with the gas';
+
+/**
+ * The haemoglobin of the oxygen content: the one on the arterial gas line of this timepoint, which
+ * the analyser measures (by co-oximetry) with the SaO2 and PaO2 it is combined with, else the Hb in
+ * force (the last one stated here: a labs line, a venous gas). Either way its term says which line
+ * it comes from (our convention; common practice, no source).
+ */
+function haemoglobinOfGas(c: DeriveContext): Term | null {
+  const gas = c.fieldOn('hb', 'abg', 'Hb');
+  if (gas) return { ...gas, note: GAS_HB_NOTE };
+  const any = c.field('hb', 'Hb');
+  const section = any ? c.input('hb')?.stated.section : undefined;
+  return any && section ? { ...any, note: `${section} line` } : any;
+}
+
+/** `labs Hb 9.0 g/dL (line 3) not used: …` for each other usable Hb stated at this timepoint. */
+function hbNotUsed(c: DeriveContext, used: Term): string[] {
+  const notes: string[] = [];
+  const stated = c.timepoint.stated;
+  const usedLine = used.origin.kind === 'here' ? used.origin.line : -1;
+  for (let i = 0; i < stated.length; i++) {
+    const s = stated[i]!;
+    if (s.fieldId !== 'hb' || !s.hereOnly || !s.usable || s.value === null || s.line === usedLine) continue;
+    const why = used.note === GAS_HB_NOTE ? "the gas line's own Hb is used" : 'the last Hb stated here is used';
+    notes.push(`${s.section} Hb ${formatStated(s)} (line ${s.line + 1}) not used: ${why}`);
+  }
+  return notes;
+}
+
+/**
+ * `the abg line`: the line whose Hb an oxygen content used, for `show`; null for a value that
+ * has no Hb among its inputs, or one not stated at its timepoint.
+ */
+export function hbSourceOf(d: DerivedValue, tp: Timepoint): string | null {
+  const hb = d.inputs.find((t) => t.fieldId === 'hb');
+  if (!hb || hb.origin.kind !== 'here') return null;
+  const line = hb.origin.line;
+  const s = tp.stated.find((x) => x.fieldId === 'hb' && x.line === line);
+  return s ? `the ${s.section} line` : null;
+}

@@ -59,7 +59,13 @@ function isGasTerm(t: Term): boolean {
 /** The stated value an input was read from, when it is one of the timepoint's values in force. */
 function statedOfTerm(t: Term, tp: Timepoint): InputValue | undefined {
   if (t.fieldId === undefined || t.origin.kind === 'derived' || t.origin.kind === 'default') return undefined;
-  return tp.values.get(t.fieldId);
+  const input = tp.values.get(t.fieldId);
+  // A formula that chose among the lines of a timepoint (the Hb of the gas line over a labs Hb):
+  // the value of the term's own line, not the last one stated.
+  const origin = t.origin;
+  if (origin.kind !== 'here' || input === undefined || input.stated.line === origin.line) return input;
+  const stated = tp.stated.find((s) => s.fieldId === t.fieldId && s.line === origin.line);
+  return stated ? { stated, origin } : input;
 }
 
 /** A gas-pressure input's number in kPa: as the note wrote it where it was written in kPa. */
