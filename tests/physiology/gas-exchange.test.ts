@@ -201,6 +201,7 @@ describe('null safety (fast-check)', () => {
     aaGradient: totality(fc.tuple(d, d), gas.aaGradient),
     aaGradientUpperNormal: totality(fc.tuple(d, rules), gas.aaGradientUpperNormal),
     arterialAlveolarRatio: totality(fc.tuple(d, d), gas.arterialAlveolarRatio),
+    arterialEndTidalCo2Difference: totality(fc.tuple(d, d), gas.arterialEndTidalCo2Difference),
     pfRatio: totality(fc.tuple(d, d), gas.pfRatio),
     pfRatioAltitudeAdjusted: totality(fc.tuple(d, d), gas.pfRatioAltitudeAdjusted),
     berlinOxygenationBand: totality(fc.tuple(d), gas.berlinOxygenationBand),

@@ -73,6 +73,7 @@ describe('null safety (fast-check)', () => {
     arterialO2Content: totality(fc.tuple(d, d, d, d), transport.arterialO2Content),
     oxygenDelivery: totality(fc.tuple(d, d), transport.oxygenDelivery),
     fio2EstimateLowFlow: totality(fc.tuple(device, d), transport.fio2EstimateLowFlow),
+    meanArterialPressure: totality(fc.tuple(d, d), transport.meanArterialPressure),
   };
   it('covers every exported function', () => {
     expect(Object.keys(cases).sort()).toEqual(exportedFunctionNames(transport));

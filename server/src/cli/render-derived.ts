@@ -1,6 +1,6 @@
 /** Derived values, missing inputs and interpretations under a timepoint. */
 import type { Timepoint } from '../core/analysis/model';
-import type { TimepointDerivation } from '../core/derive/model';
+import { isGasPressureValue, type TimepointDerivation } from '../core/derive/model';
 import { withheldByReason } from '../core/derive/registry';
 import { hbSourceOf } from '../core/derive/oxygen-transport';
 import { showsKpa } from '../core/present';
@@ -27,7 +27,7 @@ export function renderDerived(tp: Timepoint, d: TimepointDerivation | undefined,
       if (estimateMark) legend.mark('estimate');
       if (v.usesCarried) legend.mark('carried');
       const marks = `${estimateMark ? ' est.' : ''}${v.usesCarried ? '*' : ''}`;
-      if (v.unit === 'mmHg' && kpa) {
+      if (isGasPressureValue(v) && kpa) {
         return `${v.short} ${p.bold(kpaText(v))} kPa (${number} mmHg)${marks}`;
       }
       // The oxygen content says whose Hb it used (the gas line's, a labs line's).

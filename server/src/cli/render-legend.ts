@@ -7,6 +7,7 @@
  */
 import { shortAsName, type DerivedDefinition } from '../core/derive/context';
 import { DERIVED } from '../core/derive/registry';
+import { isGasPressureValue } from '../core/derive/model';
 import type { Paint } from './colour';
 
 /** The marks `show` writes beside values, lines and findings, in the order the legend lists them. */
@@ -65,6 +66,6 @@ export class Legend {
 /** `P/F ratio (PaO2 ÷ FiO2), in mmHg`: the registry's name, its formula where the name only repeats the short one, and the unit as shown. */
 function meaning(def: DerivedDefinition, kpa: boolean): string {
   const formula = namesOnlyTheShort(def) ? ` (${def.shownFormula})` : '';
-  const unit = def.unit === '' ? '' : `, in ${def.unit === 'mmHg' && kpa ? 'kPa (mmHg)' : def.unit}`;
+  const unit = def.unit === '' ? '' : `, in ${isGasPressureValue(def) && kpa ? 'kPa (mmHg)' : def.unit}`;
   return `${def.label}${formula}${unit}`;
 }

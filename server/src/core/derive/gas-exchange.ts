@@ -7,6 +7,7 @@ import {
   alveolarPo2FullSigned,
   alveolarPo2SimplifiedSigned,
   arterialAlveolarRatio,
+  arterialEndTidalCo2Difference,
   oxygenSaturationIndex,
   oxygenationIndex,
   pfRatio,
@@ -316,5 +317,29 @@ export const oxygenSaturationIndexDef = defineDerived({
     if (!fio2 || !spo2) return c.missing([fio2, 'fio2'], [spo2, 'spo2']);
     if (spo2.value > OSI_MAX_SPO2_PERCENT) return { kind: 'na', reason: 'valid only for SpO2 ≤ 97 %' };
     return c.value(oxygenSaturationIndex(fio2.value, map.value, spo2.value), [fio2, map, spo2]);
+  },
+});
+
+/** Either of the two CO2 values not stated at this timepoint: nothing to compare (one outcome for every timepoint). */
+const NOT_BOTH_CO2: Outcome = { kind: 'na', reason: 'needs a PaCO2 and an EtCO2 stated at the same timepoint' };
+const CO2_DIFFERENCE_EXTRAS: ValueExtras = { notes: ['usually about 2–5 mmHg; wider with more alveolar dead space'] };
+
+export const paco2Etco2DifferenceDef = defineDerived({
+  id: 'paco2_etco2_difference',
+  label: 'Arterial to end-tidal CO2 difference',
+  short: 'PaCO2–EtCO2',
+  unit: 'mmHg',
+  decimals: 0,
+  category: 'mechanics',
+  formula: '{PaCO2} − {EtCO2}',
+  source: SOURCES['arterial-end-tidal-co2'],
+  anchors: ['paco2', 'etco2'],
+  compute(c) {
+    // Both measured here: an end-tidal CO2 is a reading of its moment, never carried to a later gas.
+    if (!c.statedHere('paco2') || !c.statedHere('etco2')) return NOT_BOTH_CO2;
+    const pa = c.field('paco2', 'PaCO2');
+    const et = c.field('etco2', 'EtCO2');
+    if (!pa || !et) return NOT_BOTH_CO2;
+    return c.value(arterialEndTidalCo2Difference(pa.value, et.value), [pa, et], CO2_DIFFERENCE_EXTRAS);
   },
 });

@@ -51,6 +51,14 @@ export interface DerivedValue {
   readonly line: number | null;
 }
 
+/** Derived values in mmHg that are no gas pressure (a blood pressure): never shown in kPa. */
+const NOT_GAS_PRESSURES: ReadonlySet<string> = new Set(['mean_arterial_pressure']);
+
+/** Whether a derived value (or its definition) is a gas pressure, shown in kPa first where the note's gas unit is kPa. */
+export function isGasPressureValue(d: { readonly id: string; readonly unit: string }): boolean {
+  return d.unit === 'mmHg' && !NOT_GAS_PRESSURES.has(d.id);
+}
+
 /** A derived value that could not be computed, and what to add to get it. */
 export interface MissingValue {
   readonly id: string;

@@ -1,8 +1,8 @@
 /** Derived values of oxygen transport, and the low-flow FiO2 estimate. */
-import { SOURCES, arterialO2Content, fio2EstimateLowFlow, oxygenDelivery } from '../physiology';
+import { SOURCES, arterialO2Content, fio2EstimateLowFlow, meanArterialPressure, oxygenDelivery } from '../physiology';
 import type { Timepoint } from '../analysis/model';
 import { formatStated } from '../present';
-import { defineDerived, type DeriveContext, type Term } from './context';
+import { defineDerived, type DeriveContext, type Outcome, type Term, type ValueExtras } from './context';
 import type { DerivedValue } from './model';
 import { pao2Withheld } from './gas-exchange';
 
@@ -47,6 +47,33 @@ export const do2 = defineDerived({
     if (!co) return { kind: 'na', reason: 'needs a cardiac output (co on the vitals line)' };
     if (!content) return c.withheldFrom('cao2') ?? c.missing([content, c.lacking('cao2')]);
     return c.value(oxygenDelivery(co.value, content.value), [co, content]);
+  },
+});
+
+/** No blood pressure here to estimate a mean from (one outcome for every timepoint). */
+const NO_BLOOD_PRESSURE: Outcome = { kind: 'na', reason: 'needs a blood pressure (bp systolic/diastolic on the vitals line)' };
+const SYSTOLIC_BELOW: Outcome = { kind: 'na', reason: 'the systolic pressure is below the diastolic (see PN305)' };
+const MEAN_PRESSURE_EXTRAS: ValueExtras = { estimate: true, notes: ['estimated from the cuff pressures: a fixed rule, several mmHg from the measured mean in some patients'] };
+
+export const meanArterialPressureDef = defineDerived({
+  id: 'mean_arterial_pressure',
+  label: 'Mean arterial pressure, estimated from the blood pressure',
+  short: 'MAP (BP)',
+  unit: 'mmHg',
+  decimals: 0,
+  category: 'transport',
+  formula: '{BP diastolic} + ({BP systolic} − {BP diastolic}) ÷ 3',
+  source: SOURCES['mean-arterial-pressure'],
+  anchors: ['bp'],
+  compute(c) {
+    const bp = c.input('bp');
+    const parts = bp !== null && bp.stated.usable ? bp.stated.parts : null;
+    if (bp === null || parts === null || parts.length !== 2) return NO_BLOOD_PRESSURE;
+    const systolic: Term = { name: 'BP systolic', value: parts[0]!, unit: 'mmHg', decimals: 0, origin: bp.origin, fieldId: 'bp' };
+    const diastolic: Term = { name: 'BP diastolic', value: parts[1]!, unit: 'mmHg', decimals: 0, origin: bp.origin, fieldId: 'bp' };
+    // A systolic below the diastolic (PN305) gives no mean.
+    if (systolic.value < diastolic.value) return SYSTOLIC_BELOW;
+    return c.value(meanArterialPressure(systolic.value, diastolic.value), [systolic, diastolic], MEAN_PRESSURE_EXTRAS);
   },
 });
 

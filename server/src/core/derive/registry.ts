@@ -49,6 +49,8 @@ export const DERIVED: readonly DerivedDefinition[] = validateDerived([
   mech.ventilatoryRatioDef,
   transport.cao2,
   transport.do2,
+  transport.meanArterialPressureDef,
+  gas.paco2Etco2DifferenceDef,
 ]);
 
 function validateDerived(list: readonly DerivedDefinition[]): readonly DerivedDefinition[] {

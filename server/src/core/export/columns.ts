@@ -16,7 +16,8 @@
  *   carried_fields, findings_errors, findings_warnings, findings_information;
  *   then the fields and derived values added after the first published list (`ADDED_LATER`), in
  *   the order added: mechanical_power_surrogate_J_min, amplitude_cmH2O, base_excess_venous_mmol_L
- *   (a field stated on another kind of line, whose value is another one: see `COLUMN_SECTION`).
+ *   (a field stated on another kind of line, whose value is another one: see `COLUMN_SECTION`),
+ *   mean_arterial_pressure_mmHg (estimated from the blood pressure), paco2_etco2_difference_mmHg.
  *
  * Cells:
  * - Field values are those in force at the timepoint: stated there, carried from an earlier
@@ -305,7 +306,8 @@ const WHERE_FROM: Readonly<Record<string, string>> = {
   driving_pressure: 'Driving pressure (ΔP), derived: {Pplat} − {PEEP}; empty in HFOV, which gives no conventional breath with a plateau.',
   compliance_static: 'Static compliance (Cstat), derived: {VT} ÷ ({Pplat} − {PEEP}); empty in HFOV, which gives no conventional breath with a plateau.',
   compliance_dynamic: 'Dynamic compliance (Cdyn), derived: {VT} ÷ ({Ppeak} − {PEEP}); empty in HFOV, which gives no conventional breath with a peak.',
-  cao2: 'Arterial oxygen content (CaO2), derived: {Hüfner} × {Hb} × {SaO2} ÷ 100 + 0.003 × {PaO2}, where {SaO2} is the SaO2 (`sao2_pct`), else the SpO2 (`spo2_pct`), and {Hüfner} the hufnerConstant setting (1.34 mL/g by default).',
+  cao2: 'Arterial oxygen content (CaO2), derived: {Hüfner} × {Hb} × {SaO2} ÷ 100 + 0.003 × {PaO2}, where {Hb} is the Hb of the `abg` line, else the one written last (`hb_g_dL`), {SaO2} the SaO2 (`sao2_pct`), else the SpO2 (`spo2_pct`), and {Hüfner} the hufnerConstant setting (1.34 mL/g by default).',
+  mean_arterial_pressure: 'Mean arterial pressure, estimated from the blood pressure (MAP (BP)), derived: {BP diastolic} + ({BP systolic} − {BP diastolic}) ÷ 3, from `bp_systolic_mmHg` and `bp_diastolic_mmHg`; an estimate (common practice).',
   anion_gap: 'Anion gap (AG), derived: {Na} − ({Cl} + {HCO3}), where {HCO3} is the serum bicarbonate (`hco3_serum_mmol_L`), else the arterial gas HCO3 (`hco3_mmol_L`), else the venous gas HCO3 (`hco3_venous_mmol_L`); without potassium.',
 };
 
@@ -390,6 +392,8 @@ const ADDED_LATER: readonly { readonly kind: 'field' | 'derived'; readonly id: s
   { kind: 'field', id: 'amplitude' },
   // A venous base excess, which the arterial one's column kept before only when no abg line stated one.
   { kind: 'field', id: 'base_excess', section: 'vbg' },
+  { kind: 'derived', id: 'mean_arterial_pressure' },
+  { kind: 'derived', id: 'paco2_etco2_difference' },
 ];
 
 function buildColumns(): readonly Column[] {

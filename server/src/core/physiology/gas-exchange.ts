@@ -10,6 +10,8 @@ import { allFinite, finiteOrNull, forBand, inClosedRange, isFio2Fraction, isPerc
 
 /** Citations for the formulas in this module (key → citation). */
 export const SOURCES = Object.freeze({
+  'arterial-end-tidal-co2':
+    'Arterial to end-tidal CO2 difference P(a–et)CO2 = PaCO2 − EtCO2: usually under about 5 mmHg (2–5 mmHg) and wider with more alveolar dead space (pulmonary embolism, low cardiac output): AARC Clinical Practice Guideline. Capnography/capnometry during mechanical ventilation, 2003 revision & update. Respir Care 2003;48:534–539 (as cited by a secondary page, not read here); Hatle L, Rokseth R. The arterial to end-expiratory carbon dioxide tension gradient in acute pulmonary embolism and other cardiopulmonary diseases. Chest 1974;66:352–357 (as cited, not read here).',
   'alveolar-gas-equation':
     'Fenn WO, Rahn H, Otis AB. A theoretical study of the composition of the alveolar air at altitude. Am J Physiol 1946;146:637–653; Riley RL, Cournand A. "Ideal" alveolar air and the analysis of ventilation-perfusion relationships in the lungs. J Appl Physiol 1949;1:825–847 (both from memory). The simplified form with R = 0.8 is common practice.',
   'aa-gradient-age-rules':
@@ -255,4 +257,14 @@ export function po2FromSaturation(saturationFraction: number): number | null {
   const u = Math.cbrt(a + Math.sqrt(a * a + 125000));
   const po2 = u - 50 / u;
   return finiteOrNull(Math.max(0, po2));
+}
+
+/**
+ * Arterial to end-tidal CO2 difference (mmHg): PaCO2 − EtCO2, both in mmHg. Negative values are
+ * kept (an EtCO2 above the PaCO2 is seen at times). `null` unless both are ≥ 0. Source:
+ * `arterial-end-tidal-co2`.
+ */
+export function arterialEndTidalCo2Difference(paco2Mmhg: number, etco2Mmhg: number): number | null {
+  if (!allFinite(paco2Mmhg, etco2Mmhg) || paco2Mmhg < 0 || etco2Mmhg < 0) return null;
+  return finiteOrNull(paco2Mmhg - etco2Mmhg);
 }

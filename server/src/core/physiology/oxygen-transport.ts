@@ -13,6 +13,8 @@ export const SOURCES = Object.freeze({
     'Arterial O2 content CaO2 = Hüfner constant × Hb × SaO2 + 0.003 × PaO2 (mL/dL), and O2 delivery DO2 = CO × CaO2 × 10: standard physiology, e.g. West JB. Respiratory Physiology: The Essentials (from memory). Hüfner constant 1.34 mL/g by default (1.36 and 1.39 also published).',
   'nasal-cannula-fio2':
     'Nasal cannula FiO2 ≈ 0.21 + 0.04 per L/min up to 6 L/min: common practice, no source (rough; depends on breathing pattern).',
+  'mean-arterial-pressure':
+    'Mean arterial pressure ≈ diastolic + (systolic − diastolic) ÷ 3: common practice, no single source; the "standard formula" in Razminia M et al. Validation of a new formula for mean arterial pressure calculation: the new formula is superior to the standard formula. Catheter Cardiovasc Interv 2004;63:419–425 (authors from memory). An estimate: fixed rules of this kind differ from the measured mean by several mmHg (Optimal calculation of mean pressure from pulse pressure. Am J Hypertens 2023;36:297–305).',
   'simple-mask-fio2':
     'Simple face mask FiO2 ≈ 0.35 at 5 L/min rising to ≈ 0.55 at 10 L/min (interpolated linearly between): common practice, no source (rough).',
 } as const);
@@ -83,4 +85,14 @@ export function fio2EstimateLowFlow(device: LowFlowDevice, flowLPerMin: number):
     default:
       return null;
   }
+}
+
+/**
+ * Mean arterial pressure (mmHg) estimated from a cuff's systolic and diastolic pressures (mmHg):
+ * diastolic + (systolic − diastolic) ÷ 3. `null` unless 0 ≤ diastolic ≤ systolic. An estimate.
+ * Source: `mean-arterial-pressure`.
+ */
+export function meanArterialPressure(systolicMmhg: number, diastolicMmhg: number): number | null {
+  if (!allFinite(systolicMmhg, diastolicMmhg) || diastolicMmhg < 0 || systolicMmhg < diastolicMmhg) return null;
+  return finiteOrNull(diastolicMmhg + (systolicMmhg - diastolicMmhg) / 3);
 }

@@ -12,7 +12,7 @@
 import type { InputValue, Timepoint } from '../analysis/model';
 import { displayUnit } from '../analysis/read-value';
 import { describeInputOrigin, substitute } from '../derive/context';
-import type { DerivedValue, Term } from '../derive/model';
+import { isGasPressureValue, type DerivedValue, type Term } from '../derive/model';
 import { derivedDef } from '../derive/registry';
 import { isKpaField, kpaNumber, showsKpa, statedInKpa, statedKpaNumber, statedNumber } from '../present';
 import { formatNumber } from '../util/format';
@@ -30,7 +30,7 @@ export function kpaText(d: DerivedValue): string {
 
 /** Whether a derived value is a gas pressure shown in kPa first at this timepoint. */
 export function derivedInKpa(d: DerivedValue, tp: Timepoint | null | undefined): boolean {
-  return d.unit === 'mmHg' && showsKpa(tp);
+  return isGasPressureValue(d) && showsKpa(tp);
 }
 
 /**
@@ -48,7 +48,7 @@ export function derivedValueText(d: DerivedValue, tp: Timepoint | null = null): 
  * hover gives it); empty for any other value, and where kPa is shown first.
  */
 export function otherSystemText(d: DerivedValue, tp: Timepoint | null = null): string {
-  return d.unit === 'mmHg' && !derivedInKpa(d, tp) ? ` = ${kpaText(d)} kPa` : '';
+  return isGasPressureValue(d) && !derivedInKpa(d, tp) ? ` = ${kpaText(d)} kPa` : '';
 }
 
 /** A formula input that is a gas pressure (PaO2, PaCO2, PB, PH2O, a derived PAO2), in mmHg. */
@@ -100,7 +100,7 @@ function writtenInOtherUnit(t: Term, tp: Timepoint): string {
  * is a gas pressure or a plain ratio. Then every gas pressure scales alike.
  */
 function holdsInKpa(d: DerivedValue): boolean {
-  if (d.unit !== 'mmHg' && d.unit !== '') return false;
+  if (!isGasPressureValue(d) && d.unit !== '') return false;
   let gas = d.unit === 'mmHg';
   for (const t of d.inputs) {
     if (isGasTerm(t)) gas = true;
@@ -122,7 +122,7 @@ function numberOutsideBraces(template: string): boolean {
 
 /** Whether the value or any of its inputs is a gas pressure shown in kPa first at this timepoint. */
 function touchesKpa(d: DerivedValue, tp: Timepoint | null): tp is Timepoint {
-  return showsKpa(tp) && (d.unit === 'mmHg' || d.inputs.some(isGasTerm));
+  return showsKpa(tp) && (isGasPressureValue(d) || d.inputs.some(isGasTerm));
 }
 
 /**
@@ -136,7 +136,7 @@ export function substitutedText(d: DerivedValue, tp: Timepoint | null = null): s
     const left = substitute(d.template, d.inputs, (t) => (isGasTerm(t) ? termKpa(t, tp) : formatNumber(t.value, t.decimals)));
     return `${left} = ${derivedValueText(d, tp)}`;
   }
-  return d.unit === 'mmHg' ? `${d.substituted} = ${kpaText(d)} kPa` : d.substituted;
+  return isGasPressureValue(d) ? `${d.substituted} = ${kpaText(d)} kPa` : d.substituted;
 }
 
 /**

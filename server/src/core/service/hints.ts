@@ -15,7 +15,7 @@
  */
 import type { Timepoint } from '../analysis/model';
 import type { NoteResult } from '../check-note';
-import { withheldText, type DerivedValue, type Interpretation, type NotApplicable, type Term, type TimepointDerivation } from '../derive/model';
+import { isGasPressureValue, withheldText, type DerivedValue, type Interpretation, type NotApplicable, type Term, type TimepointDerivation } from '../derive/model';
 import { kpaFirstCompact, kpaNumber } from '../present';
 import { formatNumber } from '../util/format';
 import { derivedBody, derivedInKpa, termText } from './derived-hover';
@@ -71,6 +71,7 @@ export const HINT_PICKS: Readonly<Record<HintCategory, readonly Pick[]>> = {
     { id: 'driving_pressure', text: (n) => `ΔP ${n}` },
     { id: 'vt_per_kg_pbw', text: (n) => `VT ${n} mL/kg` },
     { id: 'compliance_static', text: (n) => `Cstat ${n}` },
+    { id: 'paco2_etco2_difference', text: (n) => `PaCO2–EtCO2 ${n}` },
   ],
   atmosphere: [
     // After the place line that gives the altitude, also in the header (a stated pressure needs no hint).
@@ -79,6 +80,8 @@ export const HINT_PICKS: Readonly<Record<HintCategory, readonly Pick[]>> = {
   transport: [
     { id: 'cao2', text: (n) => `CaO2 ${n}` },
     { id: 'do2', text: (n) => `DO2 ${n}` },
+    // After the vitals line of the blood pressure; its own unit, as no gas pressure is in mmHg there.
+    { id: 'mean_arterial_pressure', text: (n) => `MAP ≈ ${n}`, unit: true },
   ],
 };
 
@@ -162,7 +165,7 @@ export function inlayHints(result: NoteResult, lines: LineSpan, options: HintOpt
           const shownAt = statesHeaderValues(result, line) ? asOnHeader(tp, result.analysis.timeline.headerGasUnit) : tp;
           const kpa = derivedInKpa(d, shownAt);
           // In a note whose gas unit is kPa, a pressure shown in mmHg (its gas was written in mmHg) says so.
-          const mmhgInKpaNote = !kpa && d.unit === 'mmHg' && shownAt.gasUnit === 'kPa';
+          const mmhgInKpaNote = !kpa && isGasPressureValue(d) && shownAt.gasUnit === 'kPa';
           const n = `${hintNumber(d, kpa, pick.unit === true || mmhgInKpaNote)}${d.usesCarried ? CARRIED_MARK : ''}`;
           const label = pick.text(n, d, all.filter((v) => v.line === d.line), kpa);
           if (!label) continue;
