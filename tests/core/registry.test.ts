@@ -232,7 +232,8 @@ describe('LOINC codes checked on a page', () => {
     // Searched for and not found on a page that shows the code with its name (HL7 and FHIR pages, LOINC pages, the MII ICU
     // module, searched again for the venous gas codes and lactate): kept, marked from memory.
     const recalled = FIELDS.flatMap((f) => loincCodesOf(f).filter((c) => c.fromMemory).map((c) => `${f.id} ${c.code}`));
-    expect(recalled).toEqual(['ph_venous 2746-6', 'pvco2 2021-4', 'pvo2 2705-2', 'hco3_venous 14627-4', 'lactate 32693-4']);
+    // Mean blood pressure 8478-0: searched for and seen only in code tables, not on a page that names it.
+    expect(recalled).toEqual(['mean_bp 8478-0', 'ph_venous 2746-6', 'pvco2 2021-4', 'pvo2 2705-2', 'hco3_venous 14627-4', 'lactate 32693-4']);
   });
 });
 

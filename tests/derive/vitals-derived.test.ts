@@ -59,7 +59,7 @@ describe('mean arterial pressure from the blood pressure', () => {
     expect(renderShow('n.pneu', result, paint(false))).toMatch(/MAP \(BP\) 93 mmHg est\./);
     expect(derivedHover(derived(text, 'mean_arterial_pressure'), result.analysis.timeline.timepoints[0]!)).toContain('80 + (120 − 80) ÷ 3 = 93 mmHg');
     const names = exportColumns().map((c) => c.name);
-    expect(names.slice(-2)).toEqual(['mean_arterial_pressure_mmHg', 'paco2_etco2_difference_mmHg']);
+    expect(names.slice(-3, -1)).toEqual(['mean_arterial_pressure_mmHg', 'paco2_etco2_difference_mmHg']);
     expect(timepointRows('n.pneu', result, { redactProse: false, shiftDays: 0 })[0]!['mean_arterial_pressure_mmHg']).toBeCloseTo(93.333, 3);
   });
 
@@ -117,3 +117,28 @@ describe('arterial to end-tidal CO2 difference', () => {
     expect(rows[0]!['paco2_etco2_difference_mmHg']).toBe(7);
   });
 });
+
+describe('a measured mean arterial pressure', () => {
+  it('is read from `map` on a vitals line (an arterial line\'s mean), in mmHg, with no finding', () => {
+    const text = '@ 08:00\nvitals map 65, bp 110/50';
+    const result = checkNote(text);
+    expect(result.findings.map((f) => f.code)).toEqual([]);
+    const map = result.analysis.timeline.timepoints[0]!.values.get('mean_bp')!.stated;
+    expect([map.value, map.unit]).toEqual([65, 'mmHg']);
+  });
+
+  it('is used rather than estimated: no MAP (BP) where one is stated', () => {
+    const text = '@ 08:00\nvitals map 65, bp 110/50';
+    expect(derivation(text).derived.map((d) => d.id)).not.toContain('mean_arterial_pressure');
+    expect(derivation(text).notApplicable.find((d) => d.id === 'mean_arterial_pressure')?.reason).toBe('a mean arterial pressure is stated (map on the vitals line)');
+  });
+
+  it('is exported in a column added last, and never shown in kPa', () => {
+    const names = exportColumns().map((c) => c.name);
+    expect(names.at(-1)).toBe('mean_bp_mmHg');
+    const text = '@ 08:00\nunits gas kPa\nvitals map 65';
+    expect(timepointRows('n.pneu', checkNote(text), { redactProse: false, shiftDays: 0 })[0]!['mean_bp_mmHg']).toBe(65);
+    expect(renderShow('n.pneu', checkNote(text), paint(false))).toMatch(/MAP 65 mmHg(?! \()/);
+  });
+});
+

@@ -385,7 +385,7 @@ describe('categories', () => {
     const decided = Object.fromEntries(FIELDS.filter((f) => loincCodesOf(f).length > 0).map((f) => [f.id, observationCategory(f)]));
     expect(decided).toEqual({
       age: null, height: 'vital-signs', weight: 'vital-signs',
-      hr: 'vital-signs', rr: 'vital-signs', spo2: 'vital-signs', temp: 'vital-signs', bp: 'vital-signs', etco2: 'vital-signs', cardiac_output: 'vital-signs',
+      hr: 'vital-signs', rr: 'vital-signs', spo2: 'vital-signs', temp: 'vital-signs', bp: 'vital-signs', mean_bp: 'vital-signs', etco2: 'vital-signs', cardiac_output: 'vital-signs',
       o2_flow: 'therapy', fio2: 'therapy', vt: 'therapy', peep: 'therapy', pressure_support: 'therapy', insp_flow: 'therapy',
       plateau: null, peak: null, mean_airway_pressure: null,
       ph: 'laboratory', paco2: 'laboratory', pao2: 'laboratory', hco3: 'laboratory', base_excess: 'laboratory', sao2: 'laboratory',

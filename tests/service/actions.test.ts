@@ -508,7 +508,8 @@ describe('action properties', () => {
   };
 
   /** Gas pressures a note states, in order. */
-  const gas = (r: NoteResult) => stated(r).filter((s) => fieldById(s.fieldId)?.dimension === 'gas-pressure');
+  // Pressures a note may write in kPa: a mean arterial pressure is in mmHg too, but no gas pressure.
+  const gas = (r: NoteResult) => stated(r).filter((s) => fieldById(s.fieldId)?.dimension === 'gas-pressure' && (fieldById(s.fieldId)?.units?.includes('kPa') ?? false));
 
   /**
    * Converts `text` to `to` and checks that every gas pressure reads back as it was, within

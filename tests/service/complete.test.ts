@@ -86,14 +86,14 @@ describe('at the start of a line', () => {
 describe('keys', () => {
   it('after a section word: the keys of that section with their label and default unit', () => {
     const items = complete('vitals    |');
-    expect(items.map((c) => c.label)).toEqual(['hr', 'rr', 'spo2', 'temp', 'bp', 'etco2', 'co']);
+    expect(items.map((c) => c.label)).toEqual(['hr', 'rr', 'spo2', 'temp', 'bp', 'map', 'etco2', 'co']);
     expect(items[0]).toMatchObject({ kind: 'key', detail: 'Heart rate · /min', documentation: 'Heart rate.', insertText: 'hr' });
     expect(complete('abg |').find((c) => c.label === 'po2')?.detail).toBe("PaO2 · mmHg or kPa (bare: the note's gas unit)");
   });
 
   it('after a comma: the keys not yet used on the line', () => {
-    expect(labels('vitals hr 80, |')).toEqual(['rr', 'spo2', 'temp', 'bp', 'etco2', 'co']);
-    expect(labels('vitals hr 80, | , spo2 95 %')).toEqual(['rr', 'temp', 'bp', 'etco2', 'co']);
+    expect(labels('vitals hr 80, |')).toEqual(['rr', 'spo2', 'temp', 'bp', 'map', 'etco2', 'co']);
+    expect(labels('vitals hr 80, | , spo2 95 %')).toEqual(['rr', 'temp', 'bp', 'map', 'etco2', 'co']);
     expect(labels('vitals hr 80, r|')).toEqual(['rr']);
     expect(labels('vitals hr|')).toContain('hr'); // the key being typed does not count as used
   });

@@ -52,6 +52,7 @@ export const do2 = defineDerived({
 
 /** No blood pressure here to estimate a mean from (one outcome for every timepoint). */
 const NO_BLOOD_PRESSURE: Outcome = { kind: 'na', reason: 'needs a blood pressure (bp systolic/diastolic on the vitals line)' };
+const MEAN_STATED: Outcome = { kind: 'na', reason: 'a mean arterial pressure is stated (map on the vitals line)' };
 const SYSTOLIC_BELOW: Outcome = { kind: 'na', reason: 'the systolic pressure is below the diastolic (see PN305)' };
 const MEAN_PRESSURE_EXTRAS: ValueExtras = { estimate: true, notes: ['estimated from the cuff pressures: a fixed rule, several mmHg from the measured mean in some patients'] };
 
@@ -66,6 +67,8 @@ export const meanArterialPressureDef = defineDerived({
   source: SOURCES['mean-arterial-pressure'],
   anchors: ['bp'],
   compute(c) {
+    // A mean stated (an arterial line's) is the one to read; the rule only stands in for it.
+    if (c.input('mean_bp') !== null) return MEAN_STATED;
     const bp = c.input('bp');
     const parts = bp !== null && bp.stated.usable ? bp.stated.parts : null;
     if (bp === null || parts === null || parts.length !== 2) return NO_BLOOD_PRESSURE;

@@ -17,7 +17,8 @@
  *   then the fields and derived values added after the first published list (`ADDED_LATER`), in
  *   the order added: mechanical_power_surrogate_J_min, amplitude_cmH2O, base_excess_venous_mmol_L
  *   (a field stated on another kind of line, whose value is another one: see `COLUMN_SECTION`),
- *   mean_arterial_pressure_mmHg (estimated from the blood pressure), paco2_etco2_difference_mmHg.
+ *   mean_arterial_pressure_mmHg (estimated from the blood pressure), paco2_etco2_difference_mmHg,
+ *   mean_bp_mmHg (a mean arterial pressure as measured).
  *
  * Cells:
  * - Field values are those in force at the timepoint: stated there, carried from an earlier
@@ -394,6 +395,7 @@ const ADDED_LATER: readonly { readonly kind: 'field' | 'derived'; readonly id: s
   { kind: 'field', id: 'base_excess', section: 'vbg' },
   { kind: 'derived', id: 'mean_arterial_pressure' },
   { kind: 'derived', id: 'paco2_etco2_difference' },
+  { kind: 'field', id: 'mean_bp' },
 ];
 
 function buildColumns(): readonly Column[] {
