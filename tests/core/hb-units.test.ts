@@ -83,3 +83,26 @@ describe('haemoglobin in mmol/L', () => {
     expect(obs.valueQuantity!.value).toBeCloseTo(12.8916, 4);
   });
 });
+
+describe('a bare Hb in a note that writes Hb in mmol/L (PN319)', () => {
+  // A note whose laboratory reports Hb in mmol/L: a later `hb 8.1` without its unit is read in g/dL,
+  // the default, though it is more likely 8.1 mmol/L (13.1 g/dL). Said, never silently misread.
+  const text = '@ 08:00\nlabs hb 8.4 mmol/L\n@ 12:00\nlabs hb 8.1';
+
+  it('is reported where it is written, naming the line that writes mmol/L, with both readings offered', () => {
+    const found = checkNote(text).findings.filter((f) => f.code === 'PN319');
+    expect(found).toHaveLength(1);
+    expect(found[0]!.range.start.line).toBe(3);
+    expect(found[0]!.message).toBe('Hb 8.1 has no unit and is read as 8.1 g/dL, but this note writes Hb in mmol/L (line 2), where it would be 13.1 g/dL. Write the unit.');
+    expect(found[0]!.fixes.map((f) => f.title)).toEqual(['Mark as mmol/L', 'Mark as g/dL']);
+    expect(found[0]!.fixes[0]!.edits[0]!.newText).toBe(' mmol/L');
+  });
+
+  it('is silent where every Hb has its unit, where no Hb is in mmol/L, and for a bare Hb that is implausible in mmol/L', () => {
+    const codes = (t: string) => checkNote(t).findings.map((f) => f.code);
+    expect(codes('@ 08:00\nlabs hb 8.4 mmol/L\n@ 12:00\nlabs hb 13.0 g/dL')).toEqual([]);
+    expect(codes('@ 08:00\nlabs hb 13.5\n@ 12:00\nlabs hb 13.0')).toEqual([]);
+    // 14.5 mmol/L would be 23.4 g/dL, above the usual maximum: read in g/dL, nothing to doubt.
+    expect(codes('@ 08:00\nlabs hb 8.4 mmol/L\n@ 12:00\nlabs hb 14.5')).toEqual([]);
+  });
+});

@@ -19,6 +19,7 @@ import { timeGoesBack } from './time-order';
 import { rateBelowSet, setRateZero } from './rate-order';
 import { amplitudeOutsideHfov } from './oscillation';
 import { fio2OnRoomAirCheck, flowOnRoomAirCheck } from './room-air-flow';
+import { bareHbBesideMmolCheck } from './hb-units';
 import { therapyOverlap } from './therapy-overlap';
 import { unusualBlank } from './unusual-blank';
 import { fio2OutOfRange, impossibleValue, saturationAbove100, unusualValue } from './value-bounds';
@@ -53,6 +54,7 @@ export const CHECKS: readonly CheckDef[] = validateCheckList([
   peepAbovePeak,
   epapAboveIpap,
   fio2OnRoomAirCheck,
+  bareHbBesideMmolCheck,
   pao2AboveAlveolar,
   gasInconsistent,
   tidalVolumeHigh,
