@@ -9,6 +9,7 @@
 import type { CheckDef } from './check';
 import { badShorthand, badTime, decimalComma, duplicateKey, missingValue, otherUnitLikely, strayText, unitNotAllowed, unknownKey, unknownSection, unknownUnit, unknownWord } from './collected';
 import { pao2AboveAlveolar } from './alveolar-limit';
+import { occultHypoxaemiaCheck } from './occult-hypoxaemia';
 import { gasInconsistent } from './gas-consistency';
 import { internalError } from './internal';
 import { acidBaseReading, oxygenationReading, respiratoryFailureReading, ventilationReading } from './interpretations';
@@ -60,6 +61,7 @@ export const CHECKS: readonly CheckDef[] = validateCheckList([
   tidalVolumeHigh,
   plateauHigh,
   drivingPressureHigh,
+  occultHypoxaemiaCheck,
   oxygenationReading,
   ventilationReading,
   respiratoryFailureReading,

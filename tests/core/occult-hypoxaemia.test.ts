@@ -1,0 +1,28 @@
+// SpO2 against SaO2 at one timepoint. Occult (hidden) hypoxaemia: an arterial saturation below 88 %
+// while the pulse oximeter reads 92 % or more (Sjoding MW, Dickson RP, Iwashyna TJ, Gay SE, Valley TS.
+// Racial bias in pulse oximetry measurement. N Engl J Med 2020;383:2477–2478, from memory: SaO2 < 88 %
+// with SpO2 92–96 %; the same SaO2 < 88 % with SpO2 above 92 % in later studies of it, e.g. the
+// intraoperative one summarised by Anesthesia Experts). The oximeter reads high: the SaO2 is the
+// saturation to act on.
+import { describe, expect, it } from 'vitest';
+import { checkNote } from '../../server/src/core';
+
+const found = (text: string) => checkNote(text).findings.filter((f) => f.code === 'PN406');
+
+describe('SpO2 well above the SaO2 (PN406)', () => {
+  it('is reported where SaO2 is below 88 % and SpO2 is 92 % or more at one timepoint', () => {
+    const text = '@ 08:00\nvitals spo2 94\nabg ph 7.40, pco2 40, po2 52, sao2 86';
+    const f = found(text);
+    expect(f).toHaveLength(1);
+    expect(f[0]!.range.start.line).toBe(2);
+    expect(f[0]!.message).toBe('SaO2 86 % with SpO2 94 % at this timepoint: consistent with occult hypoxaemia (an arterial saturation below 88 % while the oximeter reads 92 % or more). The oximeter reads high here; the SaO2 is the one measured in the blood.');
+  });
+
+  it('is silent at the edges and where either saturation is missing or from another timepoint', () => {
+    expect(found('@ 08:00\nvitals spo2 92\nabg sao2 88')).toEqual([]); // SaO2 88 % is not below 88 %
+    expect(found('@ 08:00\nvitals spo2 91\nabg sao2 80')).toEqual([]); // SpO2 below 92 %: the oximeter does not claim normal
+    expect(found('@ 08:00\nvitals spo2 92\nabg sao2 87')).toHaveLength(1);
+    expect(found('@ 08:00\nvitals spo2 95\n@ 08:30\nabg sao2 85')).toEqual([]);
+    expect(found('@ 08:00\nabg sao2 85')).toEqual([]);
+  });
+});
