@@ -35,6 +35,14 @@ describe('the haemoglobin of the oxygen content', () => {
     expect(d.notes).toEqual([]);
   });
 
+  it('uses a usable labs Hb where the gas line\'s Hb is impossible (not used), rather than computing nothing', () => {
+    // hb 0.1 g/dL is below the possible minimum (PN301), so it feeds no calculation.
+    const text = '@ 08:00\nlabs hb 9.0\nabg ph 7.40, pco2 40, po2 90, sao2 97, hb 0.1';
+    const d = derived(text, 'cao2');
+    expect(d.value).toBeCloseTo(1.34 * 9 * 0.97 + 0.003 * 90, 9);
+    expect(d.inputs.find((t) => t.name === 'Hb')!.note).toBe('labs line');
+  });
+
   it('names the Hb used and its line in the hover and in `show`', () => {
     const text = `@ 08:00\n${GAS}\nlabs hb 9.0 mmol/L`;
     const result = checkNote(text);

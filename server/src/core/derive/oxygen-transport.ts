@@ -116,7 +116,12 @@ function haemoglobinOfGas(c: DeriveContext): Term | null {
   if (gas) return { ...gas, note: GAS_HB_NOTE };
   const any = c.field('hb', 'Hb');
   const section = any ? c.input('hb')?.stated.section : undefined;
-  return any && section ? { ...any, note: `${section} line` } : any;
+  if (any) return section ? { ...any, note: `${section} line` } : any;
+  // The last Hb stated here is not used (impossible, or its unit in doubt): a usable one of another line.
+  const labs = c.fieldOn('hb', 'labs', 'Hb');
+  if (labs) return { ...labs, note: 'labs line' };
+  const venous = c.fieldOn('hb', 'vbg', 'Hb');
+  return venous ? { ...venous, note: 'vbg line' } : null;
 }
 
 /** `labs Hb 9.0 g/dL (line 3) not used: …` for each other usable Hb stated at this timepoint. */
