@@ -274,7 +274,7 @@ export const roxIndexDef = defineDerived({
     const spo2 = c.field('spo2', 'SpO2');
     const fio2 = c.fio2();
     const rr: Term | null = c.field('rr', 'RR');
-    if (!spo2 || !fio2 || !rr) return c.missing([spo2, 'spo2'], [fio2, 'fio2'], [rr, 'rr']);
+    if (!spo2 || !fio2 || !rr) return c.missing([spo2, 'spo2'], [fio2, c.fio2Need()], [rr, 'rr']);
     return c.value(roxIndex(spo2.value, fio2.value, rr.value), [spo2, fio2, rr], { notes: ['at 12 h of high flow, ≥ 4.88 was associated with success and < 3.85 with failure (Roca 2019)'] });
   },
 });
