@@ -625,7 +625,9 @@ export function startServer(connection: Connection, collector: IdleCollector = n
   }
 
   connection.onDidChangeConfiguration((params: { settings?: unknown }) => {
-    clientSettings.clear();
+    // Each note keeps the settings it has until the editor's answer about it comes (they are
+    // replaced there): an edit or a request in between would otherwise be analysed with the
+    // defaults, show checks the user switched off, and make the note be read afresh twice.
     if (!canPullConfiguration) {
       // A client that cannot be asked pushes its settings: `{ settings: { pneumark: { ... } } }`.
       const pushed: unknown = params?.settings;
