@@ -39,4 +39,26 @@ describe('a hostile note in a server with a small heap', () => {
       await client.close();
     }
   }, 240_000);
+
+  it('refuses a note with a line too long to analyse within that memory, before reading it, and reads the note once the line is cut down', async () => {
+    // A finding on every two characters (`q` is no key of a vitals line): about 750 bytes of heap
+    // per character of the line, all in one step of the reading (a line is never cut in two).
+    const client = await startClient({}, { server: SMALL_HEAP });
+    try {
+      const line = `vitals ${'q '.repeat(600_000)}`;
+      const uri = client.open(path('one-long-line.pneu'), `@ 08:00\n${line}\nvitals spo2 104\n`);
+      const p = await client.diagnostics(uri, () => true, 60_000);
+      expect(p.diagnostics.map((d) => d.code)).toEqual(['too-costly']);
+      expect(p.diagnostics[0]?.message).toMatch(/^Pneumark does not analyse this note: its line 2 is 1,200,007 characters long/);
+      expect(await client.connection.sendRequest('textDocument/hover', { textDocument: { uri }, position: { line: 1, character: 8 } })).toBeNull();
+      client.change(uri, `@ 08:00\nvitals ${'q '.repeat(2_000)}\nvitals spo2 104\n`, 2);
+      const shorter = await client.diagnostics(uri, (d) => d.version === 2, 60_000);
+      expect(shorter.diagnostics.filter((d) => d.code === 'PN201')).toHaveLength(2_000);
+      expect(shorter.diagnostics.map((d) => d.code)).toContain('PN306');
+      expect(client.process.exitCode).toBeNull();
+    } finally {
+      await client.close();
+    }
+  }, 240_000);
 });
+

@@ -107,3 +107,34 @@ export function overHeapBudget(collector: IdleCollector, budget = heapBudgetByte
   if (getHeapStatistics().used_heap_size <= budget) return false;
   return !collector.collectNow() || getHeapStatistics().used_heap_size > budget;
 }
+
+/**
+ * The heap one character of a line may cost its analysis at most, as measured: a line of `q q q …`
+ * (a finding on every two characters, an unknown key each) keeps about 750 bytes per character.
+ * A note is read in steps of whole lines, so the heap is looked at only after a line is read.
+ */
+const HEAP_PER_LINE_CHAR = 800;
+
+/** The longest line the server reads: one whose analysis fits in the heap budget. */
+export function maxLineChars(budget = heapBudgetBytes()): number {
+  return Math.floor(budget / HEAP_PER_LINE_CHAR);
+}
+
+/**
+ * The first line of `text` longer than `limit` characters (its index and length), or null. Only
+ * a text longer than the limit is looked at.
+ */
+export function lineLongerThan(text: string, limit: number): { readonly line: number; readonly length: number } | null {
+  if (text.length <= limit) return null;
+  let line = 0;
+  let start = 0;
+  for (let i = 0; i <= text.length; i++) {
+    const c = i < text.length ? text.charCodeAt(i) : 0x0a;
+    if (c !== 0x0a && c !== 0x0d) continue;
+    if (i - start > limit) return { line, length: i - start };
+    if (c === 0x0d && text.charCodeAt(i + 1) === 0x0a) i++;
+    line++;
+    start = i + 1;
+  }
+  return null;
+}

@@ -48,7 +48,7 @@ import { notePathOf, ProjectConfigs, type FoundConfig } from '../node/project-co
 import { ConfigWatcher, filesToWatch, foldersToWatch, insideFolders } from './config-watch';
 import { supersededMessage } from './config-problems';
 import { DEFAULT_CLIENT_SETTINGS, effectiveSettings, readClientSettings, settingsKey, type ClientSettings, type EffectiveSettings } from './settings';
-import { heapBudgetBytes, IdleCollector, overHeapBudget } from './memory';
+import { heapBudgetBytes, IdleCollector, lineLongerThan, maxLineChars, overHeapBudget } from './memory';
 import { findingsToPublish, isHintRef, rangesOverlap, toCodeAction, toCompletionItem, toDiagnostic, toDocumentSymbol, toInlayHint, tooManyFindings } from './translate';
 
 interface NoteState {
@@ -76,6 +76,8 @@ interface NoteState {
    * text it had read then, and what the note says. A version at least as long is not read again.
    */
   refused: { readonly from: number; readonly message: string } | null;
+  /** The last text looked at for a line too long to analyse, and what was found (see `tooLongLine`). */
+  lineCheck: { readonly text: string; readonly message: string | null } | null;
 }
 
 /** What of a project file decides an analysis: where it is and what it says. */
@@ -335,7 +337,7 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     const key = settingsKey(settings.analysis);
     let state = notes.get(doc.uri);
     if (!state) {
-      state = { session: new NoteSession(settings.analysis), key, settings, timer: null, published: null, diagnostics: [], reading: null, release: null, config: found, analysedConfig: undefined, refused: null };
+      state = { session: new NoteSession(settings.analysis), key, settings, timer: null, published: null, diagnostics: [], reading: null, release: null, config: found, analysedConfig: undefined, refused: null, lineCheck: null };
       notes.set(doc.uri, state);
     } else if (state.key !== key) {
       state.session.setSettings(settings.analysis);
@@ -415,7 +417,22 @@ export function startServer(connection: Connection, collector: IdleCollector = n
   function notAnalysed(text: string, state: NoteState): string | null {
     if (exceedsBytes(text, state.settings.maxNoteBytes)) return tooLargeMessage(text, state.settings.maxNoteBytes);
     if (state.refused && text.length >= state.refused.from) return state.refused.message;
-    return null;
+    return tooLongLine(text, state);
+  }
+
+  /**
+   * Why a note with a line too long for the heap budget is not analysed (see `maxLineChars`): a
+   * line is read in one step, so the heap could not be looked at before it was all read. Null
+   * when no line is. A note longer than the limit is looked at once per text.
+   */
+  function tooLongLine(text: string, state: NoteState): string | null {
+    const limit = maxLineChars();
+    if (text.length <= limit) return null;
+    if (state.lineCheck?.text === text) return state.lineCheck.message;
+    const long = lineLongerThan(text, limit);
+    const message = long && `Pneumark does not analyse this note: its line ${long.line + 1} is ${long.length.toLocaleString('en-GB')} characters long, and the analysis of a line that long could take more than the ${Math.round(heapBudgetBytes() / 1048576)} MB of memory the language server allows. Split the line, or run \`pneumark check\` on the note, which analyses a big note in a process of its own.`;
+    state.lineCheck = { text, message };
+    return message;
   }
 
   /** The analysis of a document's current text (reusing what did not change); null when it is not analysed. */
@@ -469,6 +486,11 @@ export function startServer(connection: Connection, collector: IdleCollector = n
         code: 'too-large',
         message: tooLargeMessage(text, state.settings.maxNoteBytes),
       }]);
+      return;
+    }
+    const longLine = tooLongLine(text, state);
+    if (longLine !== null) {
+      publish(uri, state, version, started, [refusedDiagnostic(longLine)]);
       return;
     }
     if (state.refused) {
