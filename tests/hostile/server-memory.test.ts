@@ -60,5 +60,16 @@ describe('a hostile note in a server with a small heap', () => {
       await client.close();
     }
   }, 240_000);
+
+  it('refuses a note over the largest size limit without offering to raise the limit', async () => {
+    const client = await startClient({ maxNoteSizeKb: 4096 }, { server: SMALL_HEAP });
+    try {
+      const uri = client.open(path('twenty-megabytes.pneu'), '@\n'.repeat(10 * 1024 * 1024));
+      const p = await client.diagnostics(uri, () => true, 60_000);
+      expect(p.diagnostics.map((d) => [d.code, d.message])).toEqual([['too-large', 'Pneumark does not analyse notes over 4096 KB (this one is 20.0 MB), the most pneumark.maxNoteSizeKb allows: split it into smaller notes, or run `pneumark check` on it.']]);
+    } finally {
+      await client.close();
+    }
+  }, 120_000);
 });
 

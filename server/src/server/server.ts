@@ -47,7 +47,7 @@ import {
 import { notePathOf, ProjectConfigs, type FoundConfig } from '../node/project-config';
 import { ConfigWatcher, filesToWatch, foldersToWatch, insideFolders } from './config-watch';
 import { supersededMessage } from './config-problems';
-import { DEFAULT_CLIENT_SETTINGS, effectiveSettings, readClientSettings, settingsKey, type ClientSettings, type EffectiveSettings } from './settings';
+import { DEFAULT_CLIENT_SETTINGS, MAX_NOTE_SIZE_KB, effectiveSettings, readClientSettings, settingsKey, type ClientSettings, type EffectiveSettings } from './settings';
 import { heapBudgetBytes, IdleCollector, lineLongerThan, maxLineChars, overHeapBudget } from './memory';
 import { findingsToPublish, isHintRef, rangesOverlap, toCodeAction, toCompletionItem, toDiagnostic, toDocumentSymbol, toInlayHint, tooManyFindings } from './translate';
 
@@ -407,7 +407,11 @@ export function startServer(connection: Connection, collector: IdleCollector = n
   }
 
   function tooLargeMessage(text: string, maxNoteBytes: number): string {
-    return `Pneumark does not analyse notes over ${Math.round(maxNoteBytes / 1024)} KB (this one is ${(Buffer.byteLength(text, 'utf8') / 1048576).toFixed(1)} MB): split it into smaller notes, or raise pneumark.maxNoteSizeKb.`;
+    const size = `Pneumark does not analyse notes over ${Math.round(maxNoteBytes / 1024)} KB (this one is ${(Buffer.byteLength(text, 'utf8') / 1048576).toFixed(1)} MB)`;
+    // At the largest limit there is no higher one to offer.
+    return maxNoteBytes >= MAX_NOTE_SIZE_KB * 1024
+      ? `${size}, the most pneumark.maxNoteSizeKb allows: split it into smaller notes, or run \`pneumark check\` on it.`
+      : `${size}: split it into smaller notes, or raise pneumark.maxNoteSizeKb.`;
   }
 
   /**
