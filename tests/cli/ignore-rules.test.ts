@@ -50,6 +50,17 @@ describe('.pneuignore rules matched a segment at a time', () => {
     expect(mine.test(`${deep}/keep.pneu`).unignored).toBe(true);
   });
 
+  it('answer as the ignore package for long names and patterns with many `*`', () => {
+    const lines = ['**/*a*a*a*a*a*b/**/*x*x*x*x*y', '!*A*?*a*.PNEU'];
+    const mine = plainRules(lines)!;
+    const theirs = ignore().add(lines);
+    const long = 'a'.repeat(250);
+    for (const p of [`${long}b/${long}/${'x'.repeat(250)}y`, `${long}/${long}/${'x'.repeat(250)}`, `${long}b/${'x'.repeat(250)}`, `z/${long}.pneu`, `Aa.pneu`, `ax.pneu`]) {
+      const expected = theirs.test(p);
+      expect({ path: p, ...withFolders(mine, p) }).toEqual({ path: p, ignored: expected.ignored, unignored: expected.unignored });
+    }
+  });
+
   it('leave files with other forms (classes, escapes, spaces inside, runs of three `*`) to the ignore package', () => {
     for (const line of ['[ab].pneu', 'a\\ b', 'a b', '***/x', 'a**b', './a', '\\#x']) expect(plainRules([line])).toBeNull();
     expect(plainRules(['*.pneu', '!keep.pneu', 'old/'])).not.toBeNull();

@@ -31,8 +31,8 @@ export interface PathRules {
 interface Rule {
   readonly negative: boolean;
   readonly dirOnly: boolean;
-  /** A segment's test, or null for `**`. */
-  readonly segments: readonly (RegExp | null)[];
+  /** A segment's pattern (letters lower-cased), or null for `**`. */
+  readonly segments: readonly (string | null)[];
 }
 
 /** Rules with more segments than a state's bits are not taken (such a file goes to the package). */
@@ -47,7 +47,10 @@ const UNIGNORED: RuleVerdict = Object.freeze({ ignored: false, unignored: true }
 export function plainRules(lines: readonly string[]): PlainRules | null {
   const rules: Rule[] = [];
   for (const raw of lines) {
-    const line = raw.replace(/ +$/, '');
+    // Trailing spaces are dropped (by hand: a pattern for them backtracks on a run of spaces).
+    let end = raw.length;
+    while (end > 0 && raw.charCodeAt(end - 1) === 0x20) end--;
+    const line = raw.slice(0, end);
     if (line === '' || line.startsWith('#')) continue;
     if (!PLAIN_LINE.test(line)) return null;
     let body = line;
@@ -60,11 +63,11 @@ export function plainRules(lines: readonly string[]): PlainRules | null {
     const parts = body.split('/');
     // A pattern with no slash but at its end matches at any depth.
     if (!rooted && parts.length === 1) parts.unshift('**');
-    const segments: (RegExp | null)[] = [];
+    const segments: (string | null)[] = [];
     for (const part of parts) {
       if (part === '**') { segments.push(null); continue; }
       if (part.includes('**') || part === '.' || part === '..') return null;
-      segments.push(new RegExp(`^${part.replace(/\./g, '\\.').replace(/\*/g, '[^/]*').replace(/\?/g, '[^/]')}$`, 'i'));
+      segments.push(part.toLowerCase());
     }
     if (segments.length > MAX_SEGMENTS) return null;
     rules.push({ negative, dirOnly, segments });
@@ -125,11 +128,11 @@ function step(rule: Rule, state: number, name: string): number {
   let next = 0;
   for (let j = 0; j < last; j++) {
     if ((state & (1 << j)) === 0) continue;
-    const test = segments[j]!;
-    if (test === null) {
+    const pattern = segments[j]!;
+    if (pattern === null) {
       next |= 1 << j;
       if (j === last - 1) next |= 1 << last;
-    } else if (test.test(name)) {
+    } else if (segmentMatches(pattern, name)) {
       next |= 1 << (j + 1);
     }
   }
@@ -143,4 +146,39 @@ function closure(rule: Rule, state: number): number {
     if ((state & (1 << j)) !== 0 && segments[j] === null) state |= 1 << (j + 1);
   }
   return state;
+}
+
+/** An ASCII capital as its small letter; any other code unit as it is. */
+function lower(c: number): number {
+  return c >= 0x41 && c <= 0x5a ? c + 0x20 : c;
+}
+
+/**
+ * Whether a segment's pattern (`*` any run, `?` any one code unit, other characters themselves,
+ * ASCII letters in any case, as the package's expressions with their `i` flag match them) matches
+ * a whole name. Greedy, going back only to the last `*`: at most the product of the two lengths,
+ * where an expression with several `[^/]*` may try every way of sharing the name out.
+ */
+function segmentMatches(pattern: string, name: string): boolean {
+  let p = 0;
+  let n = 0;
+  let star = -1;
+  let resume = 0;
+  while (n < name.length) {
+    const c = pattern.charCodeAt(p);
+    if (p < pattern.length && c !== 0x2a && (c === 0x3f || c === lower(name.charCodeAt(n)))) {
+      p++;
+      n++;
+    } else if (p < pattern.length && c === 0x2a) {
+      star = p++;
+      resume = n;
+    } else if (star >= 0) {
+      p = star + 1;
+      n = ++resume;
+    } else {
+      return false;
+    }
+  }
+  while (pattern.charCodeAt(p) === 0x2a) p++;
+  return p === pattern.length;
 }
