@@ -189,6 +189,29 @@ function lay(dir: string, files: Readonly<Record<string, string>>): void {
 }
 
 describe('.pneuignore files in the folders scanned', () => {
+  it('match patterns with two `**` in folders 120 deep, in the deep folder and the ones on the way', async () => {
+    const dir = tempDir();
+    const deep = Array.from({ length: 120 }, (_, i) => `bed-${i}`).join('/');
+    lay(dir, {
+      '.pneuignore': '**/bed-1*/**/draft-*.pneu\n!**/bed-119/**/draft-keep.pneu\n/notes/bed-0/bed-1/bed-2/\n',
+      'notes/draft-a.pneu': alarming,
+      'notes/bed-0/draft-b.pneu': alarming,
+      'notes/bed-0/bed-1/draft-c.pneu': alarming,
+      'notes/bed-0/bed-1/kept.pneu': alarming,
+      [`notes/${deep}/draft-d.pneu`]: alarming,
+      [`notes/${deep}/draft-keep.pneu`]: alarming,
+      [`notes/${deep}/kept.pneu`]: alarming,
+    });
+    const out = io(dir);
+    await run(['check', 'notes'], out);
+    // bed-1 and below: drafts left out, but the one taken back in bed-119; bed-2 and all below it left out as a folder.
+    expect(reported(out.out())).toEqual(['notes/bed-0/bed-1/kept.pneu', 'notes/bed-0/draft-b.pneu', 'notes/draft-a.pneu']);
+    writeFileSync(join(dir, '.pneuignore'), '**/bed-1*/**/draft-*.pneu\n!**/bed-119/**/draft-keep.pneu\n');
+    const again = io(dir);
+    await run(['check', 'notes'], again);
+    expect(reported(again.out())).toEqual([`notes/${deep}/draft-keep.pneu`, `notes/${deep}/kept.pneu`, 'notes/bed-0/bed-1/kept.pneu', 'notes/bed-0/draft-b.pneu', 'notes/draft-a.pneu']);
+  });
+
   it('apply below their own folder only, matched relative to it; siblings are unaffected', async () => {
     const dir = tempDir();
     lay(dir, {

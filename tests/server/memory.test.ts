@@ -1,7 +1,7 @@
 // The server's memory upkeep: garbage collected once idle after analyses, never during a burst.
 import { getHeapSpaceStatistics } from 'node:v8';
 import { afterEach, describe, expect, it, vi } from 'vitest';
-import { IDLE_COLLECT_MS, IdleCollector, keepYoungGenerationSmall } from '../../server/src/server/memory';
+import { heapBudgetBytes, IDLE_COLLECT_MS, IdleCollector, keepYoungGenerationSmall, lineLongerThan, maxLineChars, overHeapBudget } from '../../server/src/server/memory';
 
 afterEach(() => {
   vi.useRealTimers();
@@ -58,5 +58,28 @@ describe('young generation', () => {
     const after = getHeapSpaceStatistics().find((s) => s.space_name === 'new_space')!.space_size;
     expect(kept.length).toBe(300_000);
     expect(after).toBeLessThanOrEqual(before);
+  });
+});
+
+describe('the heap budget of analyses', () => {
+  it('is half of the heap limit, at most 1.5 GB, and collects before it says the heap is over it', () => {
+    expect(heapBudgetBytes(400 * 1048576)).toBe(200 * 1048576);
+    expect(heapBudgetBytes(8192 * 1048576)).toBe(1536 * 1048576);
+    expect(maxLineChars(800_000)).toBe(1000);
+    const collect = vi.fn();
+    // A budget of one byte: over it after a collection too.
+    expect(overHeapBudget(new IdleCollector(collect), 1)).toBe(true);
+    expect(collect).toHaveBeenCalledTimes(2);
+    // Without a collector the heap in use is taken as it is.
+    expect(overHeapBudget(new IdleCollector(null), 1)).toBe(true);
+    expect(overHeapBudget(new IdleCollector(collect), Number.MAX_SAFE_INTEGER)).toBe(false);
+    expect(collect).toHaveBeenCalledTimes(2);
+  });
+
+  it('finds the first line longer than a limit, with every line end (LF, CRLF, CR) counted as the editor counts it', () => {
+    expect(lineLongerThan('short\nlines', 10)).toBeNull();
+    expect(lineLongerThan(`a\r\nb\rc\n${'x'.repeat(11)}\nd`, 10)).toEqual({ line: 3, length: 11 });
+    expect(lineLongerThan(`${'x'.repeat(10)}\r\n${'y'.repeat(10)}`, 10)).toBeNull();
+    expect(lineLongerThan(`a\n${'z'.repeat(12)}`, 10)).toEqual({ line: 1, length: 12 });
   });
 });

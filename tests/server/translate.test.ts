@@ -2,7 +2,7 @@
 // information, code action titles) with invisible and reordering characters written as escapes.
 import { describe, expect, it } from 'vitest';
 import type { Finding } from '../../server/src/core/types';
-import { toCodeAction, toDiagnostic } from '../../server/src/server/translate';
+import { findingsToPublish, toCodeAction, toDiagnostic } from '../../server/src/server/translate';
 
 const range = { start: { line: 1, character: 7 }, end: { line: 1, character: 10 } };
 
@@ -22,5 +22,36 @@ describe('text quoted from the note', () => {
   it('keeps letters of every script and emoji as they are', () => {
     const finding = { code: 'PN501', severity: 'warning', range, message: '`می\u200cخواهم` and 👩\u200d⚕️ · סימן', docAnchor: 'pn501' } as unknown as Finding;
     expect(toDiagnostic(finding, 'file:///n.pneu', 'file:///docs').message).toBe('`می\u200cخواهم` and 👩\u200d⚕️ · סימן');
+  });
+});
+
+describe('findingsToPublish', () => {
+  const severities = ['hint', 'error', 'information', 'warning', 'warning', 'error', 'hint', 'information', 'error', 'warning'] as const;
+  const findings = severities.map((severity, at) => ({ severity, at }));
+
+  it('keeps every finding up to the limit, in note order', () => {
+    expect(findingsToPublish(findings, 10)).toBe(findings);
+  });
+
+  it('keeps the most severe above it, ties in note order, all of them in note order', () => {
+    const ats = (limit: number) => findingsToPublish(findings, limit).map((f) => f.at);
+    expect(ats(3)).toEqual([1, 5, 8]);
+    expect(ats(4)).toEqual([1, 3, 5, 8]);
+    expect(ats(6)).toEqual([1, 3, 4, 5, 8, 9]);
+    expect(ats(7)).toEqual([1, 2, 3, 4, 5, 8, 9]);
+    expect(ats(9)).toEqual([0, 1, 2, 3, 4, 5, 7, 8, 9]);
+    expect(ats(0)).toEqual([]);
+  });
+
+  it('picks as a sort by severity then note order would, on generated findings', () => {
+    const order = { error: 0, warning: 1, information: 2, hint: 3 } as const;
+    for (let seed = 1; seed <= 50; seed++) {
+      let x = seed;
+      const next = () => (x = (x * 1103515245 + 12345) % 2147483648);
+      const many = Array.from({ length: 200 + (next() % 300) }, (_, at) => ({ severity: (['error', 'warning', 'information', 'hint'] as const)[next() % 4]!, at }));
+      const limit = next() % many.length;
+      const expected = [...many].sort((a, b) => order[a.severity] - order[b.severity] || a.at - b.at).slice(0, limit).sort((a, b) => a.at - b.at);
+      expect(findingsToPublish(many, limit)).toEqual(expected);
+    }
   });
 });

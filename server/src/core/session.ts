@@ -79,6 +79,11 @@ export class NoteSession {
     return this.last;
   }
 
+  /** The length of the text the session has read (all of the last update's, or what steps have read of it so far). */
+  get readLength(): number {
+    return this.lastText?.length ?? 0;
+  }
+
   get stats(): SessionStats {
     return this.statsValue;
   }

@@ -13,7 +13,7 @@
  *
  * Both are skipped quietly where the runtime does not allow them.
  */
-import { setFlagsFromString } from 'node:v8';
+import { getHeapStatistics, setFlagsFromString } from 'node:v8';
 import { runInNewContext } from 'node:vm';
 
 /** Idle time after the last analysis before the garbage of the analyses is collected. */
@@ -73,8 +73,68 @@ export class IdleCollector {
     this.timer.unref();
   }
 
+  /** Collects garbage now (twice, as when idle); false when no collector is available. */
+  collectNow(): boolean {
+    if (!this.collect) return false;
+    this.collect();
+    this.collect();
+    return true;
+  }
+
   dispose(): void {
     if (this.timer) clearTimeout(this.timer);
     this.timer = null;
   }
+}
+
+/**
+ * The heap the server lets its analyses fill: half of V8's limit, at most 1.5 GB. A note's
+ * analysis keeps from about 17 bytes of heap per byte of an ordinary note to over 600 per byte of
+ * a hostile one (a bare `@` on every line: a timepoint and a finding per two bytes), so a 4 MB
+ * note can need anything from 70 MB to 2.5 GB. The server reads a big note in steps and looks at
+ * the heap after each one (`overHeapBudget`); an analysis that outgrows the budget is dropped, and
+ * the note says why, rather than the server dying of V8's fatal out-of-memory error.
+ */
+export function heapBudgetBytes(limit = getHeapStatistics().heap_size_limit): number {
+  return Math.min(limit / 2, 1536 * 1048576);
+}
+
+/**
+ * Whether the heap in use is over `budget`. Garbage counts too until it is collected, so a heap
+ * found over it is collected (when the collector can be called) and looked at again.
+ */
+export function overHeapBudget(collector: IdleCollector, budget = heapBudgetBytes()): boolean {
+  if (getHeapStatistics().used_heap_size <= budget) return false;
+  return !collector.collectNow() || getHeapStatistics().used_heap_size > budget;
+}
+
+/**
+ * The heap one character of a line may cost its analysis at most, as measured: a line of `q q q …`
+ * (a finding on every two characters, an unknown key each) keeps about 750 bytes per character.
+ * A note is read in steps of whole lines, so the heap is looked at only after a line is read.
+ */
+const HEAP_PER_LINE_CHAR = 800;
+
+/** The longest line the server reads: one whose analysis fits in the heap budget. */
+export function maxLineChars(budget = heapBudgetBytes()): number {
+  return Math.floor(budget / HEAP_PER_LINE_CHAR);
+}
+
+/**
+ * The first line of `text` longer than `limit` characters (its index and length), or null. Only
+ * a text longer than the limit is looked at.
+ */
+export function lineLongerThan(text: string, limit: number): { readonly line: number; readonly length: number } | null {
+  if (text.length <= limit) return null;
+  let line = 0;
+  let start = 0;
+  for (let i = 0; i <= text.length; i++) {
+    const c = i < text.length ? text.charCodeAt(i) : 0x0a;
+    if (c !== 0x0a && c !== 0x0d) continue;
+    if (i - start > limit) return { line, length: i - start };
+    if (c === 0x0d && text.charCodeAt(i + 1) === 0x0a) i++;
+    line++;
+    start = i + 1;
+  }
+  return null;
 }

@@ -47,8 +47,8 @@ import {
 import { notePathOf, ProjectConfigs, type FoundConfig } from '../node/project-config';
 import { ConfigWatcher, filesToWatch, foldersToWatch, insideFolders } from './config-watch';
 import { supersededMessage } from './config-problems';
-import { DEFAULT_CLIENT_SETTINGS, effectiveSettings, readClientSettings, settingsKey, type ClientSettings, type EffectiveSettings } from './settings';
-import { IdleCollector } from './memory';
+import { DEFAULT_CLIENT_SETTINGS, MAX_NOTE_SIZE_KB, effectiveSettings, readClientSettings, settingsKey, type ClientSettings, type EffectiveSettings } from './settings';
+import { heapBudgetBytes, IdleCollector, lineLongerThan, maxLineChars, overHeapBudget } from './memory';
 import { findingsToPublish, isHintRef, rangesOverlap, toCodeAction, toCompletionItem, toDiagnostic, toDocumentSymbol, toInlayHint, tooManyFindings } from './translate';
 
 interface NoteState {
@@ -71,6 +71,13 @@ interface NoteState {
   config: FoundConfig | null;
   /** The project file the last analysis was made with; undefined before the first. */
   analysedConfig: FoundConfig | null | undefined;
+  /**
+   * When an analysis of the note outgrew the heap budget (`overHeapBudget`): the length of the
+   * text it had read then, and what the note says. A version at least as long is not read again.
+   */
+  refused: { readonly from: number; readonly message: string } | null;
+  /** The last text looked at for a line too long to analyse, and what was found (see `tooLongLine`). */
+  lineCheck: { readonly text: string; readonly message: string | null } | null;
 }
 
 /** What of a project file decides an analysis: where it is and what it says. */
@@ -146,6 +153,11 @@ export function exceedsBytes(text: string, maxBytes: number): boolean {
   if (text.length > maxBytes) return true;
   if (text.length * 3 <= maxBytes) return false;
   return Buffer.byteLength(text, 'utf8') > maxBytes;
+}
+
+/** The diagnostic of a note whose analysis outgrew the heap budget, at its first line. */
+function refusedDiagnostic(message: string): Diagnostic {
+  return { range: { start: { line: 0, character: 0 }, end: { line: 0, character: 0 } }, severity: 3, source: 'pneumark', code: 'too-costly', message };
 }
 
 export function startServer(connection: Connection, collector: IdleCollector = new IdleCollector()): void {
@@ -325,11 +337,13 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     const key = settingsKey(settings.analysis);
     let state = notes.get(doc.uri);
     if (!state) {
-      state = { session: new NoteSession(settings.analysis), key, settings, timer: null, published: null, diagnostics: [], reading: null, release: null, config: found, analysedConfig: undefined };
+      state = { session: new NoteSession(settings.analysis), key, settings, timer: null, published: null, diagnostics: [], reading: null, release: null, config: found, analysedConfig: undefined, refused: null, lineCheck: null };
       notes.set(doc.uri, state);
     } else if (state.key !== key) {
       state.session.setSettings(settings.analysis);
       state.key = key;
+      // Other settings may make the note cheaper to analyse (checks switched off): it is read again.
+      state.refused = null;
     }
     state.settings = settings;
     state.config = found;
@@ -393,14 +407,64 @@ export function startServer(connection: Connection, collector: IdleCollector = n
   }
 
   function tooLargeMessage(text: string, maxNoteBytes: number): string {
-    return `Pneumark does not analyse notes over ${Math.round(maxNoteBytes / 1024)} KB (this one is ${(Buffer.byteLength(text, 'utf8') / 1048576).toFixed(1)} MB): split it into smaller notes, or raise pneumark.maxNoteSizeKb.`;
+    const size = `Pneumark does not analyse notes over ${Math.round(maxNoteBytes / 1024)} KB (this one is ${(Buffer.byteLength(text, 'utf8') / 1048576).toFixed(1)} MB)`;
+    // At the largest limit there is no higher one to offer.
+    return maxNoteBytes >= MAX_NOTE_SIZE_KB * 1024
+      ? `${size}, the most pneumark.maxNoteSizeKb allows: split it into smaller notes, or run \`pneumark check\` on it.`
+      : `${size}: split it into smaller notes, or raise pneumark.maxNoteSizeKb.`;
   }
 
-  /** The analysis of a document's current text (reusing what did not change); null when too large. */
+  /**
+   * Why the note's text is not analysed: over `maxNoteSizeKb`, or as long as a version whose
+   * analysis outgrew the heap budget; null when it is analysed.
+   */
+  function notAnalysed(text: string, state: NoteState): string | null {
+    if (exceedsBytes(text, state.settings.maxNoteBytes)) return tooLargeMessage(text, state.settings.maxNoteBytes);
+    if (state.refused && text.length >= state.refused.from) return state.refused.message;
+    return tooLongLine(text, state);
+  }
+
+  /**
+   * Why a note with a line too long for the heap budget is not analysed (see `maxLineChars`): a
+   * line is read in one step, so the heap could not be looked at before it was all read. Null
+   * when no line is. A note longer than the limit is looked at once per text.
+   */
+  function tooLongLine(text: string, state: NoteState): string | null {
+    const limit = maxLineChars();
+    if (text.length <= limit) return null;
+    if (state.lineCheck?.text === text) return state.lineCheck.message;
+    const long = lineLongerThan(text, limit);
+    const message = long && `Pneumark does not analyse this note: its line ${long.line + 1} is ${long.length.toLocaleString('en-GB')} characters long, and the analysis of a line that long could take more than the ${Math.round(heapBudgetBytes() / 1048576)} MB of memory the language server allows. Split the line, or run \`pneumark check\` on the note, which analyses a big note in a process of its own.`;
+    state.lineCheck = { text, message };
+    return message;
+  }
+
+  /** The analysis of a document's current text (reusing what did not change); null when it is not analysed. */
   function resultFor(doc: TextDocument, state = stateFor(doc)): NoteResult | null {
     const text = doc.getText();
-    if (exceedsBytes(text, state.settings.maxNoteBytes)) return null;
+    if (notAnalysed(text, state) !== null) return null;
     return state.session.update(text);
+  }
+
+  function tooCostlyMessage(read: number, length: number): string {
+    const budget = Math.round(heapBudgetBytes() / 1048576);
+    const share = Math.min(99, Math.floor((100 * read) / Math.max(1, length)));
+    return `Pneumark stopped analysing this note: after ${share} % of it, its analysis held more than the ${budget} MB of memory the language server allows. Very many timepoints, items or findings (a bare \`@\` on every line, say) take the most; split it into smaller notes, or run \`pneumark check\` on it, which analyses a big note in a process of its own.`;
+  }
+
+  /**
+   * Drops the note's analysis when the heap is over budget (see memory.ts), so that the server
+   * stays alive and answers; the note is not read again while it is at least as long as what was
+   * read then. True when it was dropped.
+   */
+  function refusedForMemory(uri: string, state: NoteState, version: number, started: number, text: string): boolean {
+    if (!overHeapBudget(collector)) return false;
+    const read = state.session.readLength;
+    state.session = new NoteSession(state.settings.analysis);
+    state.refused = { from: Math.min(read, text.length), message: tooCostlyMessage(read, text.length) };
+    publish(uri, state, version, started, [refusedDiagnostic(state.refused.message)]);
+    collector.collectNow();
+    return true;
   }
 
   /**
@@ -428,6 +492,18 @@ export function startServer(connection: Connection, collector: IdleCollector = n
       }]);
       return;
     }
+    const longLine = tooLongLine(text, state);
+    if (longLine !== null) {
+      publish(uri, state, version, started, [refusedDiagnostic(longLine)]);
+      return;
+    }
+    if (state.refused) {
+      if (text.length >= state.refused.from) {
+        publish(uri, state, version, started, [refusedDiagnostic(state.refused.message)]);
+        return;
+      }
+      state.refused = null;
+    }
     // The first step is small (the code may not be compiled yet); then steps are sized to last
     // about STEP_BUDGET_MS each, from how long the last one took.
     const steps = state.session.steps(text, FIRST_STEP_LINES);
@@ -454,6 +530,7 @@ export function startServer(connection: Connection, collector: IdleCollector = n
       timing.longestStepMillis = Math.max(timing.longestStepMillis, took);
       read += lines;
       lines = nextStepLines(lines, took, read);
+      if (refusedForMemory(uri, state, version, started, text)) { endReading(); return; }
       if (next.done) {
         const findings = next.value.findings;
         const shown = findingsToPublish(findings);
@@ -489,7 +566,7 @@ export function startServer(connection: Connection, collector: IdleCollector = n
   /** Whether analysing the document's text now would take steps (a first read, a big change). */
   function wouldStep(state: NoteState, doc: TextDocument): boolean {
     const text = doc.getText();
-    return !exceedsBytes(text, state.settings.maxNoteBytes) && state.session.wouldStep(text, FIRST_STEP_LINES);
+    return notAnalysed(text, state) === null && state.session.wouldStep(text, FIRST_STEP_LINES);
   }
 
   function publish(uri: string, state: NoteState, version: number, started: number, diagnostics: Diagnostic[], timing = { steps: 1, longestStepMillis: performance.now() - started }): void {
@@ -574,7 +651,9 @@ export function startServer(connection: Connection, collector: IdleCollector = n
   }
 
   connection.onDidChangeConfiguration((params: { settings?: unknown }) => {
-    clientSettings.clear();
+    // Each note keeps the settings it has until the editor's answer about it comes (they are
+    // replaced there): an edit or a request in between would otherwise be analysed with the
+    // defaults, show checks the user switched off, and make the note be read afresh twice.
     if (!canPullConfiguration) {
       // A client that cannot be asked pushes its settings: `{ settings: { pneumark: { ... } } }`.
       const pushed: unknown = params?.settings;
@@ -658,8 +737,9 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     if (!doc) return null;
     const state = stateFor(doc);
     const text = doc.getText();
-    // A note too large to be analysed says so, rather than reading as a note without timepoints.
-    if (exceedsBytes(text, state.settings.maxNoteBytes)) return { uri: p.uri, version: doc.version, points: [], notAnalysed: tooLargeMessage(text, state.settings.maxNoteBytes) };
+    // A note not analysed (too large, or too costly) says so, rather than reading as a note without timepoints.
+    const why = notAnalysed(text, state);
+    if (why !== null) return { uri: p.uri, version: doc.version, points: [], notAnalysed: why };
     const result = resultFor(doc, state);
     return { uri: p.uri, version: doc.version, points: result ? trendPoints(result) : [] };
   })(params)));

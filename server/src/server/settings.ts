@@ -21,7 +21,8 @@ export const clientSettingsSchema = z
     debounceMs: z.number().int().min(0).max(5000).default(60),
     /** Notes larger than this (KiB) are not analysed; the editor stays responsive. */
     // At most 4 MB: a hostile note of that size (bare `@` lines, each a timepoint with a finding)
-    // takes the server to about 3.3 GB; much more would exhaust its heap.
+    // would take the server to about 3.3 GB; its analysis is dropped once it outgrows the heap
+    // budget (see memory.ts), and notes much larger would make even the ordinary ones slow.
     maxNoteSizeKb: z.number().int().min(16).max(MAX_NOTE_SIZE_KB).default(2048),
   })
   .passthrough();
