@@ -2,6 +2,7 @@
 import {
   DRIVING_PRESSURE_FLAG_CMH2O,
   LUNG_PROTECTIVE_VT_MAX_ML_PER_KG,
+  MECHANICAL_POWER_MODE,
   SOURCES,
   airwayResistance,
   complianceDynamic,
@@ -184,7 +185,7 @@ export const mechanicalPower = defineDerived({
   decimals: 1,
   category: 'mechanics',
   formula: '0.098 × {RR} × {VT} ÷ 1000 × ({Ppeak} − ({Pplat} − {PEEP}) ÷ 2)',
-  source: SOURCES['gattinoni-2016'],
+  source: `${SOURCES['gattinoni-2016']} ${SOURCES['becher-2019']}`,
   anchors: ['peak', 'plateau'],
   compute(c) {
     const rr = c.respiratoryRate();
@@ -195,6 +196,9 @@ export const mechanicalPower = defineDerived({
     if (!peak || !plat) return { kind: 'na', reason: 'needs peak and plateau pressures' };
     const hfov = c.oscillation();
     if (hfov) return hfov;
+    // The equation is one of constant-flow volume control (a mode in force that is not VC: not worked out).
+    const mode = c.word('mode');
+    if (mode && mode.word !== MECHANICAL_POWER_MODE) return { kind: 'na', reason: notVolumeControl(mode.word), explained: true };
     if (!rr) {
       const withheld = c.zeroSetRate();
       if (withheld) return withheld;
@@ -203,6 +207,15 @@ export const mechanicalPower = defineDerived({
     return c.value(mechanicalPowerSimplified(rr.value, vt.value, peak.value, plat.value, peep.value), [rr, vt, peak, plat, peep]);
   },
 });
+
+/**
+ * Why the simplified mechanical power is not worked out in `mode`: its equation is one of
+ * volume control with a constant flow (Gattinoni 2016), unsuited to pressure-controlled or
+ * -supported breaths (Becher 2019), whose own equations Pneumark does not use.
+ */
+function notVolumeControl(mode: string): string {
+  return `the simplified equation is for volume control with a constant flow, the airway pressure rising in a straight line through inspiration; in ${mode} the breaths are shaped otherwise, and pressure-controlled or -supported breaths need equations of their own (Becher T et al., Intensive Care Med 2019)`;
+}
 
 export const mechanicalPowerSurrogateDef = defineDerived({
   id: 'mechanical_power_surrogate',

@@ -218,9 +218,12 @@ function feedsText(result: NoteResult, s: StatedValue): string | null {
   const uses = derivation.derived.filter((d) => d.inputs.some((t) => t.fieldId === s.fieldId && t.origin.kind !== 'derived' && t.origin.kind !== 'default' && t.origin.line === s.line));
   // Values this one would feed (it is one of their main inputs, on their line) but a finding withholds.
   const withheld = derivation.notApplicable.filter((n) => n.withheldBy !== null && n.line === s.line && (derivedDef(n.id)?.anchors.includes(s.fieldId) ?? false));
+  // Values whose formula does not hold for the treatment in force (mechanical power in PC): why.
+  const explained = derivation.notApplicable.filter((n) => n.explained === true && n.withheldBy === null && n.line === s.line && (derivedDef(n.id)?.anchors.includes(s.fieldId) ?? false));
   const parts = [
     uses.length > 0 ? `Used here for: ${uses.map((d) => `${escapeMarkdown(d.short)} ${escapeMarkdown(derivedValueText(d, tp))}`).join(' · ')}` : null,
     ...withheldParagraphs(withheld),
+    ...explained.map((n) => `Not worked out here: ${escapeMarkdown(derivedDef(n.id)?.short ?? n.label)} — ${escapeMarkdown(n.reason)}.`),
   ].filter((p): p is string => p !== null);
   return parts.length > 0 ? parts.join('\n\n') : null;
 }
