@@ -15,7 +15,7 @@ import {
   ventilatoryRatio,
   vtPerKgPbw,
 } from '../physiology';
-import { defineDerived, withDecimals } from './context';
+import { defineDerived, withDecimals, type Term, type ValueExtras } from './context';
 import { decimalsAgainst } from '../util/format';
 
 export const minuteVentilation = defineDerived({
@@ -85,6 +85,20 @@ export const vtPerKg = defineDerived({
   },
 });
 
+/**
+ * A formula template with the end-expiratory pressure in force named as its line names it: PEEP on
+ * the ventilator, EPAP on NIV, the CPAP level on CPAP (`peepLike`); undefined for PEEP (the
+ * definition's own template serves).
+ */
+function namingEndExpiratory(template: string, peep: Term): string | undefined {
+  return peep.name === 'PEEP' ? undefined : template.replace('{PEEP}', `{${peep.name}}`);
+}
+
+function formulaExtras(template: string, peep: Term): ValueExtras | undefined {
+  const formula = namingEndExpiratory(template, peep);
+  return formula === undefined ? undefined : { formula };
+}
+
 const LUNG_PROTECTIVE_NOTES: readonly string[] = ['lung-protective target 6 mL/kg (4–8) in the ARDS Network protocol'];
 const OSCILLATION_VOLUME_NOTES: readonly string[] = ['in HFOV the volume of one oscillation, not compared with the lung-protective range of conventional breaths'];
 
@@ -100,14 +114,16 @@ export const drivingPressureDef = defineDerived({
   anchors: ['plateau'],
   compute(c) {
     const plat = c.field('plateau', 'Pplat');
-    const peep = c.field('peep', 'PEEP');
     if (!plat) return { kind: 'na', reason: 'needs a plateau pressure (inspiratory hold)' };
     const hfov = c.oscillationBreath();
     if (hfov) return hfov;
+    const peep = c.peepLike();
     if (!peep) return c.missing([peep, 'peep']);
     const dp = drivingPressure(plat.value, peep.value);
     // Shown beside the 15 cmH2O flag (PN405): 15.4 as 15.4, not as 15 next to "above 15".
-    return c.value(dp, [plat, peep], withDecimals(dp === null ? undefined : decimalsAgainst(dp, 0, DRIVING_PRESSURE_FLAG_CMH2O)));
+    const decimals = dp === null ? undefined : decimalsAgainst(dp, 0, DRIVING_PRESSURE_FLAG_CMH2O);
+    const formula = namingEndExpiratory('{Pplat} − {PEEP}', peep);
+    return c.value(dp, [plat, peep], formula === undefined ? withDecimals(decimals) : { decimals, formula });
   },
 });
 
@@ -124,12 +140,12 @@ export const complianceStaticDef = defineDerived({
   compute(c) {
     const vt = c.field('vt', 'VT');
     const plat = c.field('plateau', 'Pplat');
-    const peep = c.field('peep', 'PEEP');
     if (!plat) return { kind: 'na', reason: 'needs a plateau pressure' };
     const hfov = c.oscillationBreath();
     if (hfov) return hfov;
+    const peep = c.peepLike();
     if (!vt || !peep) return c.missing([vt, 'vt'], [peep, 'peep']);
-    return c.value(complianceStatic(vt.value, plat.value, peep.value), [vt, plat, peep]);
+    return c.value(complianceStatic(vt.value, plat.value, peep.value), [vt, plat, peep], formulaExtras('{VT} ÷ ({Pplat} − {PEEP})', peep));
   },
 });
 
@@ -146,12 +162,12 @@ export const complianceDynamicDef = defineDerived({
   compute(c) {
     const vt = c.field('vt', 'VT');
     const peak = c.field('peak', 'Ppeak');
-    const peep = c.field('peep', 'PEEP');
     if (!peak) return { kind: 'na', reason: 'needs a peak pressure' };
     const hfov = c.oscillationBreath();
     if (hfov) return hfov;
+    const peep = c.peepLike();
     if (!vt || !peep) return c.missing([vt, 'vt'], [peep, 'peep']);
-    return c.value(complianceDynamic(vt.value, peak.value, peep.value), [vt, peak, peep]);
+    return c.value(complianceDynamic(vt.value, peak.value, peep.value), [vt, peak, peep], formulaExtras('{VT} ÷ ({Ppeak} − {PEEP})', peep));
   },
 });
 
