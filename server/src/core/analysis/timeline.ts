@@ -628,7 +628,7 @@ function hold(base: HeldMap, stated: readonly (StatedValue | undefined)[], from:
   let next: Map<string, Held> | null = null;
   for (let k = from; k < to; k++) {
     const s = stated[k]!;
-    if (s.field.reading) continue;
+    if (s.hereOnly) continue;
     if (next === null) {
       // Copied with forEach: `new Map(base)` goes through an iterator, an object per entry.
       next = new Map();
@@ -651,13 +651,16 @@ function apply(section: SectionId, stated: (StatedValue | undefined)[], from: nu
     case 'units': { const g = firstOf(stated, from, to, 'gas_unit'); if (g?.word) state.gasUnit = new HeldValue(g, tp, label); break; }
     case 'oxygen': state.oxygen = hold(EMPTY, stated, from, to, tp, label); state.vent = EMPTY; break;
     case 'vent': {
+      const mode = firstOf(stated, from, to, 'mode');
+      const before = state.vent.get('mode')?.stated.word;
+      // In HFOV the mean airway pressure is set, not read off the breaths: held like a setting.
+      const modeAfter = mode?.word ?? before;
+      if (modeAfter && isOscillation(modeAfter)) asSettings(stated, from, to, 'mean_airway_pressure');
       // A line of readings only (`vent peak 15, ve 8`) starts no ventilation: the support in force stays.
       if (!statesVentSetting(stated, from, to, state.oxygen)) break;
       state.oxygen = EMPTY;
       // A new mode starts a new set of settings; PEEP and FiO2 carry across it. Modes are words of
       // any case: one outside the registry's (`ASV`, then `asv`) is the same mode restated.
-      const mode = firstOf(stated, from, to, 'mode');
-      const before = state.vent.get('mode')?.stated.word;
       let base = state.vent;
       if (mode?.word && before && mode.word.toLowerCase() !== before.toLowerCase()) {
         const kept = isOscillation(mode.word) || isOscillation(before) ? KEPT_ACROSS_OSCILLATION : KEPT_ACROSS_MODES;
@@ -683,12 +686,17 @@ function statesVentSetting(stated: (StatedValue | undefined)[], from: number, to
   let volumes = 0;
   for (let k = from; k < to; k++) {
     const s = stated[k]!;
-    if (s.field.reading) continue;
+    if (s.hereOnly) continue;
     if (s.fieldId !== 'vt' || !givesBreaths(oxygen)) return true;
     volumes++;
   }
-  if (volumes > 0) for (let k = from; k < to; k++) if (stated[k]!.fieldId === 'vt') stated[k] = new AsReading(stated[k]!);
+  if (volumes > 0) for (let k = from; k < to; k++) if (stated[k]!.fieldId === 'vt') stated[k] = new ReadAs(stated[k]!, true);
   return false;
+}
+
+/** Makes the values of field `id` among `stated[from, to)` settings (held and carried), though their field is a reading. */
+function asSettings(stated: (StatedValue | undefined)[], from: number, to: number, id: string): void {
+  for (let k = from; k < to; k++) if (stated[k]!.fieldId === id && stated[k]!.hereOnly) stated[k] = new ReadAs(stated[k]!, false);
 }
 
 /** Oxygen-line devices that give breaths and measure their volume (common practice, no source). */
@@ -703,11 +711,13 @@ function givesBreaths(oxygen: HeldMap): boolean {
 }
 
 /**
- * A value read as a reading of its timepoint though its field is a setting: a tidal volume on a vent
- * line of readings under NIV (see `statesVentSetting`). In force where it is stated, never carried.
+ * A value read as a reading of its timepoint though its field is a setting (`hereOnly`: a tidal
+ * volume on a vent line of readings under NIV, see `statesVentSetting`), in force where it is stated
+ * and never carried; or as a setting though its field is a reading (the mean airway pressure set
+ * on an oscillator, see `asSettings`), held and carried.
  */
-class AsReading implements StatedValue {
-  constructor(readonly read: StatedValue) {}
+class ReadAs implements StatedValue {
+  constructor(readonly read: StatedValue, readonly hereOnly: boolean) {}
   get field(): FieldDef { return this.read.field; }
   get fieldId(): string { return this.read.fieldId; }
   get section(): SectionId { return this.read.section; }
@@ -721,7 +731,6 @@ class AsReading implements StatedValue {
   get unitImplied(): boolean { return this.read.unitImplied; }
   get unitDoubt(): string | null { return this.read.unitDoubt; }
   get usable(): boolean { return this.read.usable; }
-  get hereOnly(): boolean { return true; }
 }
 
 /** The settings a change of mode keeps: PEEP and FiO2 (our convention, common practice, no source). */

@@ -230,6 +230,10 @@ function feedsText(result: NoteResult, s: StatedValue): string | null {
 
 function carryText(field: FieldDef, section: SectionId, stated: StatedValue | null): string {
   const kind = sectionById(section).kind;
+  // The mean airway pressure an oscillator is set to.
+  if (kind === 'setting' && field.reading && stated !== null && !stated.hereOnly) {
+    return 'Carries forward: yes, in HFOV the mean airway pressure is set: until restated, a change of mode or an `oxygen` line.';
+  }
   // A tidal volume on a vent line of readings under NIV or CPAP: the volume the device measured.
   if (kind === 'setting' && !field.reading && stated?.hereOnly === true) {
     return 'Carries forward: no — on a `vent` line of readings under NIV or CPAP, it is the volume the device measured at this timepoint; the support in force is not ended.';
