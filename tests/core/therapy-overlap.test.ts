@@ -33,7 +33,9 @@ describe('an oxygen line and a vent line at one timepoint (PN311)', () => {
   });
 
   it('says one setting in the singular', () => {
-    expect(pn311('@ 11:00\noxygen mask\nvent plateau 20')[0]?.message).toContain('so its device (mask) is neither used');
+    // The vent line states a setting: one of readings only (`vent plateau 20`) ends no oxygen line.
+    expect(pn311('@ 11:00\noxygen mask\nvent mode VC, plateau 20')[0]?.message).toContain('so its device (mask) is neither used');
+    expect(pn311('@ 11:00\noxygen mask\nvent plateau 20')).toEqual([]);
   });
 
   it('stays silent for one therapy per timepoint, for a change at a timepoint of its own, and for a vent line of readings only above an oxygen line', () => {

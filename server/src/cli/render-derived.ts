@@ -1,7 +1,7 @@
 /** Derived values, missing inputs and interpretations under a timepoint. */
 import type { Timepoint } from '../core/analysis/model';
 import { isGasPressureValue, type TimepointDerivation } from '../core/derive/model';
-import { withheldByReason } from '../core/derive/registry';
+import { derivedDef, withheldByReason } from '../core/derive/registry';
 import { hbSourceOf } from '../core/derive/oxygen-transport';
 import { showsKpa } from '../core/present';
 import { wordList } from '../core/util/format';
@@ -41,6 +41,12 @@ export function renderDerived(tp: Timepoint, d: TimepointDerivation | undefined,
   for (const n of d.notApplicable) if (n.withheldBy !== null) legend.value(n.id, kpa);
   const withheld = withheldByReason(d.notApplicable);
   for (const [why, names] of withheld) lines.push(`  ${p.yellow('withheld'.padEnd(8))} ${names.join(p.dim(' · '))}: ${why}`);
+  // Values whose formula does not hold for the treatment in force, though their inputs are here: why.
+  for (const n of d.notApplicable) {
+    if (n.explained !== true || n.withheldBy !== null) continue;
+    legend.value(n.id, kpa);
+    lines.push(`  ${p.dim('n/a'.padEnd(8))} ${derivedDef(n.id)?.short ?? n.label}: ${n.reason}`);
+  }
   for (const [needs, what] of groupMissing(d)) lines.push(`  ${p.dim('missing'.padEnd(8))} ${p.dim(`add ${needs} to get ${what.join(', ')}`)}`);
   for (const i of d.interpretations) lines.push(`  ${p.cyan('reading'.padEnd(8))} ${i.text}`);
   return lines;

@@ -64,9 +64,20 @@ function writtenPrecisionIn(s: StatedValue, target: UnitDef): number {
   if (read === target) return written;
   const factor = convert(1, read, target);
   if (factor === null || factor <= 0) return 0;
+  // A rate in Hz shown in /min: the decimals that give back the number written (1.004 Hz is 60.24
+  // /min, not 60, which is 1 Hz; 5.5 Hz is 330 /min).
+  if (read.id === 'Hz') return roundTripDecimals(Number(text.replace(',', '.')), written, factor);
   const shift = -Math.log10(factor);
   const whole = Math.round(shift);
   return Math.abs(shift - whole) < 1e-9 ? Math.max(0, written + whole) : 0;
+}
+
+/** The fewest decimals (up to those written) with which `written × factor` converts back to `written` at its decimals. */
+function roundTripDecimals(written: number, decimals: number, factor: number): number {
+  if (!Number.isFinite(written)) return 0;
+  const shown = formatNumber(written, decimals);
+  for (let d = 0; d < decimals; d++) if (formatNumber(Number(formatNumber(written * factor, d)) / factor, decimals) === shown) return d;
+  return decimals;
 }
 
 /**

@@ -343,7 +343,8 @@ function unknownKeyIssue(item: ItemNode, section: SectionId, line: number, lineI
   // The first word of an oxygen line is its device: a misspelt one (`oxygen canula 2`) reads as an
   // unknown key, and is offered the devices it is near.
   const devices = section === 'oxygen' && lineItems[0] === item ? nearDevices(key.text) : [];
-  const near = [...devices, ...closest(key.text, keysInSection(section))].slice(0, 3);
+  const renamed = endExpiratoryName(key.text, section, lineItems);
+  const near = renamed !== null ? [renamed] : [...devices, ...closest(key.text, keysInSection(section))].slice(0, 3);
   const elsewhere = FIELDS.filter((f) => f.aliases.includes(key.text.toLowerCase())).flatMap((f) => f.sections);
   const where = elsewhere.length > 0 ? ` (\`${key.text}\` belongs on a ${[...new Set(elsewhere)].join(' or ')} line)` : '';
   const hint = near.length > 0 ? ` Did you mean ${near.map((k) => `\`${k}\``).join(' or ')}?` : '';
@@ -354,6 +355,21 @@ function unknownKeyIssue(item: ItemNode, section: SectionId, line: number, lineI
     message: `\`${key.text}\` is ${devices.length > 0 ? 'neither a device nor a key' : 'not a key'} of ${section} lines${where}.${hint}`,
     fixes: near.map((k) => ({ title: `Change to \`${k}\``, edits: [{ span: key.span, newText: k }], preferred: near.length === 1 && safeKeyFix(key.text.toLowerCase(), k.toLowerCase()) })),
   };
+}
+
+/**
+ * The end-expiratory pressure has a name per line (format rule): `peep` on a vent line, in mode CPAP
+ * too; `epap` on a NIV oxygen line; `level` on a CPAP oxygen line. For another of these names written
+ * on a line that does not take it (`vent mode CPAP, cpap 8`, `oxygen niv ipap 14, peep 6`), the
+ * line's own name; else null.
+ */
+function endExpiratoryName(key: string, section: SectionId, lineItems: readonly ItemNode[]): string | null {
+  const lower = key.toLowerCase();
+  if (section === 'vent') return lower === 'cpap' || lower === 'epap' ? 'peep' : null;
+  if (section !== 'oxygen' || lower !== 'peep') return null;
+  let device: string | null = null;
+  for (const item of lineItems) if (item.implied === 'device' && item.value) device = item.value.text.toLowerCase();
+  return device === 'cpap' ? 'level' : 'epap';
 }
 
 /** A run of words that is near a device of several words but not one: what it reads as, and where. */

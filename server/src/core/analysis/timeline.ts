@@ -5,7 +5,8 @@
  *
  * Carry rules: patient and place values carry until restated (a `place` line replaces the
  * whole place); an `oxygen` line replaces the previous oxygen line and ends ventilation;
- * a `vent` line ends oxygen-line therapy and updates the ventilator settings it restates,
+ * a `vent` line that states a setting ends oxygen-line therapy (one of readings only ends nothing;
+ * under NIV or CPAP its tidal volume is the measured one, of its timepoint) and updates the ventilator settings it restates,
  * keeping the rest (a change of mode keeps only PEEP and FiO2, a change to or from HFOV only
  * FiO2); measurements (vitals, gases,
  * labs) and device readings never carry.
@@ -627,7 +628,7 @@ function hold(base: HeldMap, stated: readonly (StatedValue | undefined)[], from:
   let next: Map<string, Held> | null = null;
   for (let k = from; k < to; k++) {
     const s = stated[k]!;
-    if (s.field.reading) continue;
+    if (s.hereOnly) continue;
     if (next === null) {
       // Copied with forEach: `new Map(base)` goes through an iterator, an object per entry.
       next = new Map();
@@ -643,18 +644,23 @@ function copyInto(this: Map<string, Held>, held: Held, id: string): void {
 }
 
 /** Holds the settings among `stated[from, to)`, the values of one `section` line. */
-function apply(section: SectionId, stated: readonly (StatedValue | undefined)[], from: number, to: number, tp: number, label: string, state: MutableState): void {
+function apply(section: SectionId, stated: (StatedValue | undefined)[], from: number, to: number, tp: number, label: string, state: MutableState): void {
   switch (section) {
     case 'patient': state.patient = hold(state.patient, stated, from, to, tp, label); break;
     case 'place': if (to > from) state.place = hold(EMPTY, stated, from, to, tp, label); break;
     case 'units': { const g = firstOf(stated, from, to, 'gas_unit'); if (g?.word) state.gasUnit = new HeldValue(g, tp, label); break; }
     case 'oxygen': state.oxygen = hold(EMPTY, stated, from, to, tp, label); state.vent = EMPTY; break;
     case 'vent': {
+      const mode = firstOf(stated, from, to, 'mode');
+      const before = state.vent.get('mode')?.stated.word;
+      // In HFOV the mean airway pressure is set, not read off the breaths: held like a setting.
+      const modeAfter = mode?.word ?? before;
+      if (modeAfter && isOscillation(modeAfter)) asSettings(stated, from, to, 'mean_airway_pressure');
+      // A line of readings only (`vent peak 15, ve 8`) starts no ventilation: the support in force stays.
+      if (!statesVentSetting(stated, from, to, state.oxygen)) break;
       state.oxygen = EMPTY;
       // A new mode starts a new set of settings; PEEP and FiO2 carry across it. Modes are words of
       // any case: one outside the registry's (`ASV`, then `asv`) is the same mode restated.
-      const mode = firstOf(stated, from, to, 'mode');
-      const before = state.vent.get('mode')?.stated.word;
       let base = state.vent;
       if (mode?.word && before && mode.word.toLowerCase() !== before.toLowerCase()) {
         const kept = isOscillation(mode.word) || isOscillation(before) ? KEPT_ACROSS_OSCILLATION : KEPT_ACROSS_MODES;
@@ -667,6 +673,64 @@ function apply(section: SectionId, stated: readonly (StatedValue | undefined)[],
     }
     default: break;
   }
+}
+
+/**
+ * Whether the vent line `stated[from, to)` states a ventilator setting, and so ends the oxygen line
+ * in force and updates the ventilator's settings. A line of readings off the device only (peak,
+ * plateau, measured minute volume, end-tidal CO2) does neither. Under NIV or CPAP (an oxygen line
+ * with a device that gives breaths) a tidal volume on such a line is the exhaled volume the device
+ * measures: it is made a reading of its timepoint (`AsReading`, in `stated`) and ends nothing.
+ */
+function statesVentSetting(stated: (StatedValue | undefined)[], from: number, to: number, oxygen: HeldMap): boolean {
+  let volumes = 0;
+  for (let k = from; k < to; k++) {
+    const s = stated[k]!;
+    if (s.hereOnly) continue;
+    if (s.fieldId !== 'vt' || !givesBreaths(oxygen)) return true;
+    volumes++;
+  }
+  if (volumes > 0) for (let k = from; k < to; k++) if (stated[k]!.fieldId === 'vt') stated[k] = new ReadAs(stated[k]!, true);
+  return false;
+}
+
+/** Makes the values of field `id` among `stated[from, to)` settings (held and carried), though their field is a reading. */
+function asSettings(stated: (StatedValue | undefined)[], from: number, to: number, id: string): void {
+  for (let k = from; k < to; k++) if (stated[k]!.fieldId === id && stated[k]!.hereOnly) stated[k] = new ReadAs(stated[k]!, false);
+}
+
+/** Oxygen-line devices that give breaths and measure their volume (common practice, no source). */
+const BREATH_DEVICES: readonly string[] = ['niv', 'cpap'];
+
+/** Whether the oxygen line held is non-invasive support that gives breaths (NIV or CPAP, by its device or its pressures). */
+function givesBreaths(oxygen: HeldMap): boolean {
+  if (oxygen.size === 0) return false;
+  const device = oxygen.get('device')?.stated.word;
+  if (device !== undefined && device !== null) return BREATH_DEVICES.includes(device);
+  return oxygen.has('ipap') || oxygen.has('epap') || oxygen.has('cpap_level');
+}
+
+/**
+ * A value read as a reading of its timepoint though its field is a setting (`hereOnly`: a tidal
+ * volume on a vent line of readings under NIV, see `statesVentSetting`), in force where it is stated
+ * and never carried; or as a setting though its field is a reading (the mean airway pressure set
+ * on an oscillator, see `asSettings`), held and carried.
+ */
+class ReadAs implements StatedValue {
+  constructor(readonly read: StatedValue, readonly hereOnly: boolean) {}
+  get field(): FieldDef { return this.read.field; }
+  get fieldId(): string { return this.read.fieldId; }
+  get section(): SectionId { return this.read.section; }
+  get line(): number { return this.read.line; }
+  get item(): ItemNode { return this.read.item; }
+  get value(): number | null { return this.read.value; }
+  get parts(): readonly number[] | null { return this.read.parts; }
+  get word(): string | null { return this.read.word; }
+  get unit(): string | null { return this.read.unit; }
+  get readUnit(): string | null { return this.read.readUnit; }
+  get unitImplied(): boolean { return this.read.unitImplied; }
+  get unitDoubt(): string | null { return this.read.unitDoubt; }
+  get usable(): boolean { return this.read.usable; }
 }
 
 /** The settings a change of mode keeps: PEEP and FiO2 (our convention, common practice, no source). */

@@ -44,6 +44,8 @@ const above = (value: number, other: number): string => formatShort(value, decim
 const peepAbovePlateauMessage = (low: number, high: number): string => `PEEP ${above(low, high)} cmH2O is above the plateau pressure ${above(high, low)} cmH2O; plateau pressure includes PEEP.`;
 const plateauAbovePeakMessage = (low: number, high: number): string => `Plateau pressure ${above(low, high)} cmH2O is above the peak pressure ${above(high, low)} cmH2O; were they swapped?`;
 const peepAbovePeakMessage = (low: number, high: number): string => `PEEP ${above(low, high)} cmH2O is above the peak pressure ${above(high, low)} cmH2O; peak pressure includes PEEP.`;
+const epapAbovePeakMessage = (low: number, high: number): string => `EPAP ${above(low, high)} cmH2O is above the peak pressure ${above(high, low)} cmH2O; peak pressure includes the EPAP.`;
+const cpapAbovePeakMessage = (low: number, high: number): string => `CPAP ${above(low, high)} cmH2O is above the peak pressure ${above(high, low)} cmH2O; peak pressure includes the CPAP.`;
 
 export const peepAbovePlateau = defineCheck({
   code: 'PN303',
@@ -86,15 +88,19 @@ export const peepAbovePeak = defineCheck({
   severity: 'error',
   tags: ['plausibility'],
   doc: {
-    fires: 'PEEP is higher than the peak pressure in force at the same timepoint, where no plateau pressure is measured. The peak pressure is measured above atmospheric pressure and includes PEEP (PEEP plus the pressures that move the breath), so it cannot be lower. With a plateau measured, PEEP above plateau (PN303) or plateau above peak (PN304) is reported instead.',
+    fires: 'PEEP is higher than the peak pressure in force at the same timepoint, where no plateau pressure is measured. The peak pressure is measured above atmospheric pressure and includes PEEP (PEEP plus the pressures that move the breath), so it cannot be lower. With a plateau measured, PEEP above plateau (PN303) or plateau above peak (PN304) is reported instead. On NIV or CPAP (an oxygen line in force, and a peak read on a vent line of readings) the EPAP or the CPAP level is the end-expiratory pressure compared.',
     example: 'vent peep 12, peak 10',
     fix: 'Check both values; a peak written as the pressure above PEEP (a set inspiratory pressure or pressure support) is a common slip.',
   },
   source: 'respiratory mechanics: peak pressure = PEEP + resistive + elastic pressure, measured above atmospheric (common practice, no source)',
   runTimepoint(ctx) {
     // A plateau in force is compared with both (PN303, PN304); asked without building the value.
-    if (ctx.timepoint.values.numberOf('plateau') !== null) return;
-    orderCheck(ctx, 'peep', 'peak', peepAbovePeakMessage);
+    const values = ctx.timepoint.values;
+    if (values.numberOf('peak') === null || values.numberOf('plateau') !== null) return;
+    // The end-expiratory pressure in force: PEEP, else the EPAP (NIV), else the CPAP level.
+    if (values.numberOf('peep') !== null) orderCheck(ctx, 'peep', 'peak', peepAbovePeakMessage);
+    else if (values.numberOf('epap') !== null) orderCheck(ctx, 'epap', 'peak', epapAbovePeakMessage);
+    else orderCheck(ctx, 'cpap_level', 'peak', cpapAbovePeakMessage);
   },
 });
 

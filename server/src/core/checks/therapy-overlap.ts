@@ -14,9 +14,12 @@ type Therapy = 'oxygen' | 'vent';
 
 const OTHER: Readonly<Record<Therapy, Therapy>> = { oxygen: 'vent', vent: 'oxygen' };
 
-/** A setting the line holds (values measured on the ventilator, such as a plateau, are not settings). */
+/**
+ * A setting the line holds: values measured on the ventilator (a plateau; under NIV or CPAP, a tidal
+ * volume on a vent line of readings) are not settings, and belong to their timepoint only.
+ */
 function isSetting(s: StatedValue): boolean {
-  return (s.section === 'oxygen' || s.section === 'vent') && s.field.reading !== true;
+  return (s.section === 'oxygen' || s.section === 'vent') && !s.hereOnly;
 }
 
 /** `device (mask) and FiO2 0.50`: the settings of one line, as a message names them. */
@@ -35,19 +38,21 @@ export const therapyOverlap = defineCheck({
   severity: 'warning',
   tags: ['timeline'],
   doc: {
-    fires: 'One timepoint holds an oxygen line and a vent line. Each ends the other\'s therapy, so the later line is in force there and the settings of the earlier one are not used (nor carried to later timepoints). The earlier line is reported, with the later one as related information. A vent line of measured values only (`vent plateau 24`) holds no settings and is never reported, though it still ends an oxygen line above it.',
+    fires: 'One timepoint holds an oxygen line and a vent line. Each ends the other\'s therapy, so the later line is in force there and the settings of the earlier one are not used (nor carried to later timepoints). The earlier line is reported, with the later one as related information. A vent line of measured values only (`vent plateau 24`; under NIV or CPAP also an exhaled tidal volume, `vent vt 480, peak 16`) holds no settings: it is never reported, and it ends no oxygen line.',
     example: '@ 08:00\noxygen mask, fio2 0.5\nvent mode VC, vt 450 mL, rate 14, peep 5',
     fix: 'If the therapy changed during this timepoint, give the change a timepoint of its own (a new `@` line). If the FiO2 belongs to the ventilator, write it on the vent line and remove the oxygen line.',
   },
-  source: 'format rule (grammar/README.md: an oxygen line ends ventilation, a vent line ends oxygen-line therapy)',
+  source: 'format rule (grammar/README.md: an oxygen line ends ventilation, a vent line with a setting ends oxygen-line therapy)',
   runTimepoint(ctx) {
     const stated = ctx.timepoint.stated;
-    // The last line of each therapy at this timepoint (any vent line ends an oxygen line, even one of readings).
+    // The last line of each therapy at this timepoint that ends the other: a vent line of readings
+    // only (`vent peak 15`) starts no ventilation, and ends no oxygen line.
     let lastOxygen = -1;
     let lastVent = -1;
     for (const s of stated) {
+      if (!isSetting(s)) continue;
       if (s.section === 'oxygen') lastOxygen = Math.max(lastOxygen, s.line);
-      else if (s.section === 'vent') lastVent = Math.max(lastVent, s.line);
+      else lastVent = Math.max(lastVent, s.line);
     }
     if (lastOxygen < 0 || lastVent < 0) return;
     const lines = ctx.analysis.tree.lines;

@@ -66,9 +66,12 @@ const PER_MIN = unitById('/min')!;
 /**
  * For an unusual set rate: in HFOV, a number written bare or in /min that is a usual frequency
  * in Hz (`rate 5`, meant as 5 Hz) is offered Hz; outside HFOV, a rate written in Hz is said to be
- * usual there (the mode may be missing or mistyped).
+ * usual there (the mode may be missing or mistyped). `slip` says whether the number may be a rate
+ * of breaths written in Hz by a slip (`rate 14 Hz`, meant as 14 /min): only a whole number, as
+ * conventional rates are set in whole breaths a minute (common practice, no source); `rate 1.004 Hz`
+ * is a frequency, and 1.004 /min no rate of breaths.
  */
-function rateHint(s: StatedValue, at: TimepointContext | null): { text: string; fix: Fix | null } | null {
+function rateHint(s: StatedValue, at: TimepointContext | null): { text: string; fix: Fix | null; slip?: boolean } | null {
   if (s.fieldId !== 'vent_rate' || at === null) return null;
   const written = s.item.number;
   const value = s.item.value;
@@ -81,7 +84,7 @@ function rateHint(s: StatedValue, at: TimepointContext | null): { text: string; 
   }
   if (s.readUnit !== 'Hz') return null;
   const mode = at.timepoint.values.get('mode')?.stated.word ?? null;
-  return { text: ` A rate in Hz is usual in HFOV; the mode in force here is ${mode === null ? 'not stated' : mode}.`, fix: null };
+  return { text: ` A rate in Hz is usual in HFOV; the mode in force here is ${mode === null ? 'not stated' : mode}.`, fix: null, slip: written !== null && Number.isInteger(written) };
 }
 
 /**
@@ -232,7 +235,7 @@ export const unusualValue = defineCheck({
   severity: 'warning',
   tags: ['plausibility'],
   doc: {
-    fires: 'A value is possible but outside the usual (soft) bounds of its field: worth a second look at the unit or the transcription. Low arterial gas pressures are not flagged where the barometric pressure is below 500 mmHg, since they are real at extreme altitude. A tidal volume is usual from 2 mL per kg of body size (the smaller of the weight and the predicted body weight in force), or from 50 mL where the note gives neither; in HFOV, which moves 1–3 mL/kg a breath, it has no usual minimum. In HFOV the set rate is the oscillation frequency, usual from 3 to 15 Hz (180–900 /min) rather than at most 60 /min: a number written bare or in /min that is such a frequency in Hz (`rate 5`) is reported with `Hz` offered; a rate written in Hz in another mode is reported where it is above 60 /min (1 Hz), with its usual maximum in both units and a word that Hz is usual in HFOV, and /min offered where the number is usual in /min (`rate 14 Hz` in VC). A number written in another unit than its field\'s own is compared at the precision written: `pco2 20.0 kPa` is 150.01 mmHg, yet to a tenth of a kPa it is the usual maximum of 150 mmHg, and is not reported. A saturation written as a fraction with no unit (`spo2 0.94`) is reported with the percentage offered, and is not used until it is rewritten.',
+    fires: 'A value is possible but outside the usual (soft) bounds of its field: worth a second look at the unit or the transcription. Low arterial gas pressures are not flagged where the barometric pressure is below 500 mmHg, since they are real at extreme altitude. A tidal volume is usual from 2 mL per kg of body size (the smaller of the weight and the predicted body weight in force), or from 50 mL where the note gives neither; in HFOV, which moves 1–3 mL/kg a breath, it has no usual minimum. In HFOV the set rate is the oscillation frequency, usual from 3 to 15 Hz (180–900 /min) rather than at most 60 /min: a number written bare or in /min that is such a frequency in Hz (`rate 5`) is reported with `Hz` offered; a rate written in Hz in another mode is reported where it is above 60 /min (1 Hz), with its usual maximum in both units and a word that Hz is usual in HFOV, and /min offered where the number is a whole one usual in /min (`rate 14 Hz` in VC; not `rate 1.004 Hz`, a frequency, as rates of breaths are set in whole breaths a minute). A number written in another unit than its field\'s own is compared at the precision written: `pco2 20.0 kPa` is 150.01 mmHg, yet to a tenth of a kPa it is the usual maximum of 150 mmHg, and is not reported. A saturation written as a fraction with no unit (`spo2 0.94`) is reported with the percentage offered, and is not used until it is rewritten.',
     example: 'vitals hr 236',
     fix: 'Confirm the value; if it is right, the warning can stay (or the check can be switched off in settings). Where the number is usual in the field\'s other unit (`vt 0.45 mL`, meant as L), a quick fix writes that unit.',
   },
@@ -264,7 +267,7 @@ export const unusualValue = defineCheck({
     // A set rate under HFOV is offered Hz (its hint says why); one in Hz under another mode is
     // told that Hz belongs to HFOV, and offered /min where the number is usual there.
     const hint = rateHint(stated, at);
-    const other = hint?.fix ? { unit: 'Hz', fix: hint.fix } : otherUnitFix(field, stated, soft);
+    const other = hint?.fix ? { unit: 'Hz', fix: hint.fix } : hint?.slip === false ? null : otherUnitFix(field, stated, soft);
     const otherText = hint?.fix ? '' : other ? ` In ${other.unit} it would be usual.` : '';
     ctx.report({
       range: toRange(stated.line, stated.item.value?.span ?? stated.item.span),

@@ -70,7 +70,7 @@ export type Outcome =
   // The extras by reference: most values give none or one shared object (no copy per value).
   | { readonly kind: 'value'; readonly value: number; readonly terms: readonly Term[]; readonly extras: ValueExtras }
   | { readonly kind: 'missing'; readonly needs: readonly string[] }
-  | { readonly kind: 'na'; readonly reason: string; readonly withheldBy?: string };
+  | { readonly kind: 'na'; readonly reason: string; readonly withheldBy?: string; readonly explained?: boolean };
 
 export interface DerivedDef {
   readonly id: string;
@@ -478,7 +478,7 @@ function evaluateDef(def: DerivedDefinition, c: DeriveContext): DerivedValue | M
   // Found after computing: the anchors the formula read are answered from what it read.
   const line = anchorLine(def, c);
   if (outcome.kind === 'missing') return new Missing(def, outcome.needs, line);
-  if (outcome.kind === 'na') return { id: def.id, label: def.label, reason: outcome.reason, line, withheldBy: outcome.withheldBy ?? null };
+  if (outcome.kind === 'na') return { id: def.id, label: def.label, reason: outcome.reason, line, withheldBy: outcome.withheldBy ?? null, explained: outcome.explained ?? false };
   return new ComputedValue(def, outcome, usesCarried(outcome.terms, c), line);
 }
 

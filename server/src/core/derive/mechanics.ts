@@ -2,6 +2,7 @@
 import {
   DRIVING_PRESSURE_FLAG_CMH2O,
   LUNG_PROTECTIVE_VT_MAX_ML_PER_KG,
+  MECHANICAL_POWER_MODE,
   SOURCES,
   airwayResistance,
   complianceDynamic,
@@ -14,7 +15,7 @@ import {
   ventilatoryRatio,
   vtPerKgPbw,
 } from '../physiology';
-import { defineDerived, withDecimals } from './context';
+import { defineDerived, withDecimals, type Term, type ValueExtras } from './context';
 import { decimalsAgainst } from '../util/format';
 
 export const minuteVentilation = defineDerived({
@@ -84,6 +85,20 @@ export const vtPerKg = defineDerived({
   },
 });
 
+/**
+ * A formula template with the end-expiratory pressure in force named as its line names it: PEEP on
+ * the ventilator, EPAP on NIV, the CPAP level on CPAP (`peepLike`); undefined for PEEP (the
+ * definition's own template serves).
+ */
+function namingEndExpiratory(template: string, peep: Term): string | undefined {
+  return peep.name === 'PEEP' ? undefined : template.replace('{PEEP}', `{${peep.name}}`);
+}
+
+function formulaExtras(template: string, peep: Term): ValueExtras | undefined {
+  const formula = namingEndExpiratory(template, peep);
+  return formula === undefined ? undefined : { formula };
+}
+
 const LUNG_PROTECTIVE_NOTES: readonly string[] = ['lung-protective target 6 mL/kg (4–8) in the ARDS Network protocol'];
 const OSCILLATION_VOLUME_NOTES: readonly string[] = ['in HFOV the volume of one oscillation, not compared with the lung-protective range of conventional breaths'];
 
@@ -99,14 +114,16 @@ export const drivingPressureDef = defineDerived({
   anchors: ['plateau'],
   compute(c) {
     const plat = c.field('plateau', 'Pplat');
-    const peep = c.field('peep', 'PEEP');
     if (!plat) return { kind: 'na', reason: 'needs a plateau pressure (inspiratory hold)' };
     const hfov = c.oscillationBreath();
     if (hfov) return hfov;
+    const peep = c.peepLike();
     if (!peep) return c.missing([peep, 'peep']);
     const dp = drivingPressure(plat.value, peep.value);
     // Shown beside the 15 cmH2O flag (PN405): 15.4 as 15.4, not as 15 next to "above 15".
-    return c.value(dp, [plat, peep], withDecimals(dp === null ? undefined : decimalsAgainst(dp, 0, DRIVING_PRESSURE_FLAG_CMH2O)));
+    const decimals = dp === null ? undefined : decimalsAgainst(dp, 0, DRIVING_PRESSURE_FLAG_CMH2O);
+    const formula = namingEndExpiratory('{Pplat} − {PEEP}', peep);
+    return c.value(dp, [plat, peep], formula === undefined ? withDecimals(decimals) : { decimals, formula });
   },
 });
 
@@ -123,12 +140,12 @@ export const complianceStaticDef = defineDerived({
   compute(c) {
     const vt = c.field('vt', 'VT');
     const plat = c.field('plateau', 'Pplat');
-    const peep = c.field('peep', 'PEEP');
     if (!plat) return { kind: 'na', reason: 'needs a plateau pressure' };
     const hfov = c.oscillationBreath();
     if (hfov) return hfov;
+    const peep = c.peepLike();
     if (!vt || !peep) return c.missing([vt, 'vt'], [peep, 'peep']);
-    return c.value(complianceStatic(vt.value, plat.value, peep.value), [vt, plat, peep]);
+    return c.value(complianceStatic(vt.value, plat.value, peep.value), [vt, plat, peep], formulaExtras('{VT} ÷ ({Pplat} − {PEEP})', peep));
   },
 });
 
@@ -145,12 +162,12 @@ export const complianceDynamicDef = defineDerived({
   compute(c) {
     const vt = c.field('vt', 'VT');
     const peak = c.field('peak', 'Ppeak');
-    const peep = c.field('peep', 'PEEP');
     if (!peak) return { kind: 'na', reason: 'needs a peak pressure' };
     const hfov = c.oscillationBreath();
     if (hfov) return hfov;
+    const peep = c.peepLike();
     if (!vt || !peep) return c.missing([vt, 'vt'], [peep, 'peep']);
-    return c.value(complianceDynamic(vt.value, peak.value, peep.value), [vt, peak, peep]);
+    return c.value(complianceDynamic(vt.value, peak.value, peep.value), [vt, peak, peep], formulaExtras('{VT} ÷ ({Ppeak} − {PEEP})', peep));
   },
 });
 
@@ -184,7 +201,7 @@ export const mechanicalPower = defineDerived({
   decimals: 1,
   category: 'mechanics',
   formula: '0.098 × {RR} × {VT} ÷ 1000 × ({Ppeak} − ({Pplat} − {PEEP}) ÷ 2)',
-  source: SOURCES['gattinoni-2016'],
+  source: `${SOURCES['gattinoni-2016']} ${SOURCES['becher-2019']}`,
   anchors: ['peak', 'plateau'],
   compute(c) {
     const rr = c.respiratoryRate();
@@ -195,6 +212,9 @@ export const mechanicalPower = defineDerived({
     if (!peak || !plat) return { kind: 'na', reason: 'needs peak and plateau pressures' };
     const hfov = c.oscillation();
     if (hfov) return hfov;
+    // The equation is one of constant-flow volume control (a mode in force that is not VC: not worked out).
+    const mode = c.word('mode');
+    if (mode && mode.word !== MECHANICAL_POWER_MODE) return { kind: 'na', reason: notVolumeControl(mode.word), explained: true };
     if (!rr) {
       const withheld = c.zeroSetRate();
       if (withheld) return withheld;
@@ -203,6 +223,15 @@ export const mechanicalPower = defineDerived({
     return c.value(mechanicalPowerSimplified(rr.value, vt.value, peak.value, plat.value, peep.value), [rr, vt, peak, plat, peep]);
   },
 });
+
+/**
+ * Why the simplified mechanical power is not worked out in `mode`: its equation is one of
+ * volume control with a constant flow (Gattinoni 2016), unsuited to pressure-controlled or
+ * -supported breaths (Becher 2019), whose own equations Pneumark does not use.
+ */
+function notVolumeControl(mode: string): string {
+  return `the simplified equation is for volume control with a constant flow, the airway pressure rising in a straight line through inspiration; in ${mode} the breaths are shaped otherwise, and pressure-controlled or -supported breaths need equations of their own (Becher T et al., Intensive Care Med 2019)`;
+}
 
 export const mechanicalPowerSurrogateDef = defineDerived({
   id: 'mechanical_power_surrogate',

@@ -81,6 +81,12 @@ export interface NotApplicable {
    * (`WITHHELD_BECAUSE`). Null for a formula that merely does not apply here.
    */
   readonly withheldBy: string | null;
+  /**
+   * True where the inputs are there but the formula does not hold for the treatment in force (the
+   * simplified mechanical power in a pressure mode): what people read says why, where the value
+   * would have been. False (or absent) for a formula that merely lacks its anchor.
+   */
+  readonly explained?: boolean;
 }
 
 /** Why values are withheld, by the code of the finding that withholds them: a clause for what people read. */

@@ -241,6 +241,8 @@ export function loincMismatch(loinc: LoincCode, field: FieldDef, section: Sectio
   if (/--on ventilator\b/.test(name) && field.reading !== true) return `${loinc.code} is measured on the ventilator, the value is a setting`;
   // A volume or a flow written under a mode that sets none was delivered, so it was measured.
   const notSet = NOT_SET_UNDER.get(field.id);
+  // Under NIV or CPAP with no ventilator mode, a tidal volume is one the device measured (a vent line of readings).
+  if (notSet && /\bsetting\b/.test(name) && written.mode === null && (device === 'niv' || device === 'cpap')) return `${loinc.code} is a set ${notSet.what}, and ${device === 'niv' ? 'NIV' : 'CPAP'} sets none`;
   if (notSet && /\bsetting\b/.test(name) && written.mode !== null && notSet.modes.has(written.mode)) return `${loinc.code} is a set ${notSet.what}, and ${written.mode} sets none`;
   // A high-flow device's flow is the total gas flow (air and oxygen blended to the FiO2), not the oxygen flow.
   if (/^Inhaled oxygen flow rate\b/.test(name) && device === 'hfnc') return `${loinc.code} is the oxygen flow, the value is the total gas flow of a high-flow device`;

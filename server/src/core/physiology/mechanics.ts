@@ -23,6 +23,8 @@ export const SOURCES = Object.freeze({
     'Static compliance VT / (Pplat − PEEP), dynamic compliance VT / (Ppeak − PEEP), resistance (Ppeak − Pplat) / flow in constant-flow volume control, minute ventilation VT × RR: standard respiratory mechanics; common practice, no single source.',
   'gattinoni-2016':
     'Gattinoni L, Tonetti T, Cressoni M, et al. Ventilator-related causes of lung injury: the mechanical power. Intensive Care Med 2016;42(10):1567–1575 (from memory).',
+  'becher-2019':
+    'Becher T, van der Staay M, Schädler D, Frerichs I, Weiler N. Calculation of mechanical power for pressure-controlled ventilation. Intensive Care Med 2019 (letter): the simplified equation assumes volume control with a linear rise of airway pressure and does not suit pressure-controlled breaths (read in its opening paragraph; its own equations for those modes not read in full, so not used).',
   'giosa-2019':
     'Giosa L, Busana M, Pasticci I, et al. Mechanical power at a glance: a simple surrogate for volume-controlled ventilation. Intensive Care Med Exp 2019;7:61 (from memory).',
   'sinha-2009':
@@ -148,7 +150,15 @@ export function airwayResistance(ppeakCmh2o: number, pplatCmh2o: number, flowLPe
 }
 
 /**
- * Mechanical power (J/min), simplified equation for volume control:
+ * The ventilator mode (its canonical word) whose breaths the simplified equation of mechanical power
+ * describes: volume control, with a constant inspiratory flow, the airway pressure rising in a
+ * straight line. It does not suit pressure-controlled or -supported breaths. Sources:
+ * `gattinoni-2016`, `becher-2019`.
+ */
+export const MECHANICAL_POWER_MODE = 'VC';
+
+/**
+ * Mechanical power (J/min), simplified equation for volume control (`MECHANICAL_POWER_MODE`):
  * 0.098 × RR × VT (L) × (Ppeak − ½ × (Pplat − PEEP)).
  * `null` unless RR ≥ 0, VT ≥ 0, PEEP ≥ 0, Pplat ≥ PEEP and Ppeak ≥ Pplat. Source: `gattinoni-2016`.
  */

@@ -2,7 +2,8 @@
  * Code actions for a range of the note:
  * (a) every fix of every finding the range touches, as a quick fix tagged with its code;
  * (b) write the value under the cursor in the other unit (mmHg ↔ kPa, FiO2 fraction ↔ %,
- *     °C ↔ °F, g/dL ↔ g/L), number and unit together; a shorthand gas converts both pressures;
+ *     °C ↔ °F, g/dL ↔ g/L; a set rate in Hz to /min outside HFOV), number and unit together; a
+ *     shorthand gas converts both pressures;
  * (c) write out the unit a bare value was read in (`po2 71` → `po2 71 mmHg`);
  * (d) fix all findings of one kind whose fix is marked safe, and one source action that
  *     applies every safe fix in the note (edits never overlap);
@@ -14,7 +15,8 @@ import type { StatedValue } from '../analysis/model';
 import { checkByCodeOrAlias } from '../checks/registry';
 import type { FieldDef } from '../fields/registry';
 import { comparePositions, type Finding, type Fix, type Range, type TextEdit } from '../types';
-import { allStated, isValidPosition, itemAt, lineAt, statedOnLine } from './locate';
+import { allStated, isValidPosition, itemAt, lineAt, statedOnLine, timepointOfLine } from './locate';
+import { OSCILLATION_MODE } from '../physiology/mechanics';
 import { parseLine } from '../syntax/parser';
 import type { LineNode } from '../syntax/tree';
 import { applyEdits, editsOverlap } from './text-edits';
@@ -69,6 +71,7 @@ function valueActions(result: NoteResult, range: Range): ActionInfo[] {
         pushAll(out, shorthandActions(result, line));
       } else {
         pushAll(out, conversionAction(stated));
+        pushAll(out, rateInPerMinuteAction(result, stated));
         pushAll(out, addUnitAction(result, stated));
       }
     }
@@ -107,6 +110,21 @@ function conversionAction(s: StatedValue): ActionInfo[] {
   if (!edits || number === null) return [];
   const title = to === 'fraction' ? `Write ${keyOf(s)} as a fraction: ${number}` : `Write ${keyOf(s)} in ${displayUnit(to)}: ${number} ${displayUnit(to)}`;
   return [{ title, kind: 'refactor.rewrite', edits }];
+}
+
+/**
+ * A set rate written in Hz under a mode other than HFOV (or none): written in /min, the unit rates
+ * of breaths are set in, keeping its value (`rate 0.25 Hz` → `rate 15 /min`, `rate 1.004 Hz` →
+ * `60.24 /min`). Hz belongs to oscillators, so in HFOV nothing is offered.
+ */
+function rateInPerMinuteAction(result: NoteResult, s: StatedValue): ActionInfo[] {
+  if (s.fieldId !== 'vent_rate' || s.readUnit !== 'Hz' || !s.usable || s.unitDoubt) return [];
+  const tp = timepointOfLine(result, s.line);
+  if (tp?.values.get('mode')?.stated.word === OSCILLATION_MODE) return [];
+  const edits = itemConversionEdits(s.line, s, '/min');
+  const number = numberIn(s, s.field, '/min');
+  if (!edits || number === null) return [];
+  return [{ title: `Write ${keyOf(s)} in /min: ${number} /min`, kind: 'refactor.rewrite', edits }];
 }
 
 /**

@@ -92,7 +92,7 @@ function fieldMarkdown(result: NoteResult, node: SectionLine, hit: ItemHit): str
   } else if (hit.item.value) {
     parts.push(`${code(hit.item.value.text)} could not be read as ${escapeMarkdown(field.label)}.`);
   }
-  parts.push(carryText(field, node.section));
+  parts.push(carryText(field, node.section, stated));
   parts.push(loincText(field, node.section, hit.item.keyName));
   parts.push(cautionLine());
   return paragraphs(parts);
@@ -189,10 +189,11 @@ function originText(result: NoteResult, s: StatedValue): string {
  * timepoint ends (PN311): it is neither in force there nor carried.
  */
 function endedText(tp: Timepoint, s: StatedValue): string {
-  if ((s.section !== 'oxygen' && s.section !== 'vent') || s.field.reading === true) return '';
+  if ((s.section !== 'oxygen' && s.section !== 'vent') || s.hereOnly) return '';
   const other = s.section === 'oxygen' ? 'vent' : 'oxygen';
   let ender = -1;
-  for (const t of tp.stated) if (t.section === other && t.line > s.line) ender = Math.max(ender, t.line);
+  // A vent line of readings only ends no oxygen line: only a line with a setting ends the other therapy.
+  for (const t of tp.stated) if (t.section === other && t.line > s.line && !t.hereOnly) ender = Math.max(ender, t.line);
   return ender < 0 ? '' : ` The ${code(other)} line below it (line ${ender + 1}) ends this ${code(s.section)} line at the same timepoint, so this value is not in force here nor carried (PN311).`;
 }
 
@@ -217,19 +218,30 @@ function feedsText(result: NoteResult, s: StatedValue): string | null {
   const uses = derivation.derived.filter((d) => d.inputs.some((t) => t.fieldId === s.fieldId && t.origin.kind !== 'derived' && t.origin.kind !== 'default' && t.origin.line === s.line));
   // Values this one would feed (it is one of their main inputs, on their line) but a finding withholds.
   const withheld = derivation.notApplicable.filter((n) => n.withheldBy !== null && n.line === s.line && (derivedDef(n.id)?.anchors.includes(s.fieldId) ?? false));
+  // Values whose formula does not hold for the treatment in force (mechanical power in PC): why.
+  const explained = derivation.notApplicable.filter((n) => n.explained === true && n.withheldBy === null && n.line === s.line && (derivedDef(n.id)?.anchors.includes(s.fieldId) ?? false));
   const parts = [
     uses.length > 0 ? `Used here for: ${uses.map((d) => `${escapeMarkdown(d.short)} ${escapeMarkdown(derivedValueText(d, tp))}`).join(' · ')}` : null,
     ...withheldParagraphs(withheld),
+    ...explained.map((n) => `Not worked out here: ${escapeMarkdown(derivedDef(n.id)?.short ?? n.label)} — ${escapeMarkdown(n.reason)}.`),
   ].filter((p): p is string => p !== null);
   return parts.length > 0 ? parts.join('\n\n') : null;
 }
 
-function carryText(field: FieldDef, section: SectionId): string {
+function carryText(field: FieldDef, section: SectionId, stated: StatedValue | null): string {
   const kind = sectionById(section).kind;
+  // The mean airway pressure an oscillator is set to.
+  if (kind === 'setting' && field.reading && stated !== null && !stated.hereOnly) {
+    return 'Carries forward: yes, in HFOV the mean airway pressure is set: until restated, a change of mode or an `oxygen` line.';
+  }
+  // A tidal volume on a vent line of readings under NIV or CPAP: the volume the device measured.
+  if (kind === 'setting' && !field.reading && stated?.hereOnly === true) {
+    return 'Carries forward: no — on a `vent` line of readings under NIV or CPAP, it is the volume the device measured at this timepoint; the support in force is not ended.';
+  }
   if (kind === 'header') return section === 'place' ? 'Carries forward: yes, until a later `place` line replaces the place.' : 'Carries forward: yes, for the whole note until restated.';
   if (kind === 'setting' && !field.reading) {
     return section === 'oxygen'
-      ? 'Carries forward: yes, until the next `oxygen` line (which replaces it) or a `vent` line.'
+      ? 'Carries forward: yes, until the next `oxygen` line (which replaces it) or a `vent` line with a setting (one of readings only ends nothing).'
       : 'Carries forward: yes, until restated (a new `mode` keeps only PEEP and FiO2; a change to or from HFOV only FiO2), or until an `oxygen` line.';
   }
   // "Reading" names Pneumark's interpretations elsewhere: a value measured on a device is a measurement.
