@@ -93,9 +93,11 @@ Without --check or --write, prints the formatted note (one file only).
 
 Options:
   --check                    list notes whose layout would change; exit 1 if any
-  --write                    rewrite notes in place, atomically; a note with syntax errors is left
-                             alone unless --force, and a read-only note, or one changed on disk
-                             while being formatted, is never overwritten
+  --write                    rewrite notes in place, atomically, keeping their permissions, owner
+                             and group; a note with syntax errors is left alone unless --force, and
+                             a read-only note, one changed on disk while being formatted, one with
+                             several names (hard links) or one whose owner the new file could not
+                             keep is never overwritten
   --force                    with --write: also rewrite notes that have syntax errors (their broken
                              lines are kept as they are)
   --exclude PATTERN          leave out paths matching PATTERN (gitignore syntax) or an absolute path; repeatable`,

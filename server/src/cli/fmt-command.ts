@@ -2,7 +2,9 @@
  * `pneumark fmt`: the editor's formatter over files. `--check` lists notes whose layout would
  * change; `--write` rewrites them atomically (a note reached through a symbolic link where the link
  * leads) and never over a note that has syntax errors (unless --force), that is not UTF-8 text, or
- * that changed on disk while being formatted. A byte-order mark is kept, when printing too. Paths in
+ * that changed on disk while being formatted, nor over one with several names (hard links: the new
+ * file would take one of them only) or whose owner and group the new file could not be given. Its
+ * permissions are kept whatever the umask. A byte-order mark is kept, when printing too. Paths in
  * its messages have their control characters made visible (see `visible`); a note printed formatted
  * is the note itself, written as it is.
  */
@@ -97,6 +99,12 @@ export function runFmt(args: readonly string[], io: Io): number {
       failed = true;
       continue;
     }
+    // A rename gives the new text to this name only: the note's other names would keep the old one.
+    if (snapshot.links > 1) {
+      io.stderr.write(`pneumark: ${shown}: has ${snapshot.links} names (hard links), which a rewritten file would separate; not rewritten\n`);
+      failed = true;
+      continue;
+    }
     const syntaxErrors = checkNote(text).findings.filter((f) => f.severity === 'error' && /^PN1/.test(f.code));
     if (syntaxErrors.length > 0 && !opts.force) {
       io.stderr.write(`pneumark: ${shown}: not rewritten: ${syntaxErrors.length} syntax error(s), first at line ${syntaxErrors[0]!.range.start.line + 1}; fix them or use --force\n`);
@@ -108,6 +116,9 @@ export function runFmt(args: readonly string[], io: Io): number {
       const outcome = writeIfUnchanged(abs, snapshot, bom + formatted, fmtHooks.beforeRename);
       if (outcome === 'changed-on-disk') {
         io.stderr.write(`pneumark: ${shown}: changed on disk while being formatted; left as it is\n`);
+        failed = true;
+      } else if (outcome === 'owner-not-kept') {
+        io.stderr.write(`pneumark: ${shown}: owned by another user or group, which a rewritten file could not keep; not rewritten\n`);
         failed = true;
       } else {
         io.stdout.write(`formatted ${shown}\n`);

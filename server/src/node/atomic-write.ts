@@ -5,8 +5,12 @@
  * the original or the new note, never a mix; a note edited by someone else meanwhile is left alone.
  * A note reached through a symbolic link is written where the link leads (the temporary file goes
  * beside the real note, on its file system): the link stays a link, and the note it names changes.
+ * The new file gets the note's permissions (whatever the umask) and its owner and group: root rewriting a colleague's
+ * note leaves it theirs. A process that may not give the new file the note's owner or group (a user
+ * who may write someone else's note, but not give a file away) writes nothing and says so
+ * ('owner-not-kept'), rather than leave the note owned by whoever formatted it.
  */
-import { closeSync, fsyncSync, openSync, readFileSync, realpathSync, renameSync, statSync, unlinkSync, writeSync } from 'node:fs';
+import { closeSync, fchmodSync, fchownSync, fstatSync, fsyncSync, openSync, readFileSync, realpathSync, renameSync, statSync, unlinkSync, writeSync } from 'node:fs';
 import { basename, dirname, join } from 'node:path';
 
 export interface ReadSnapshot {
@@ -16,16 +20,18 @@ export interface ReadSnapshot {
   readonly size: number;
   /** The note's real path (symbolic links resolved) when it was read. */
   readonly realPath: string;
+  /** How many names (hard links) the note has: a rename gives a new file to one of them only. */
+  readonly links: number;
 }
 
 export function readSnapshot(path: string): ReadSnapshot {
   const realPath = realpathSync.native(path);
   const bytes = readFileSync(realPath);
   const stat = statSync(realPath);
-  return { bytes, text: bytes.toString('utf8'), mtimeMs: stat.mtimeMs, size: stat.size, realPath };
+  return { bytes, text: bytes.toString('utf8'), mtimeMs: stat.mtimeMs, size: stat.size, realPath, links: stat.nlink };
 }
 
-export type WriteOutcome = 'written' | 'changed-on-disk';
+export type WriteOutcome = 'written' | 'changed-on-disk' | 'owner-not-kept';
 
 /** Test hook: called after the temporary file is complete and before the rename. */
 export type BeforeRename = (tempPath: string) => void;
@@ -37,8 +43,24 @@ export function writeIfUnchanged(path: string, snapshot: ReadSnapshot, text: str
   const real = realpathSync.native(path);
   if (real !== snapshot.realPath) return 'changed-on-disk';
   const temp = join(dirname(real), `.${basename(real)}.pneumark-${process.pid}-${Date.now()}.tmp`);
-  const fd = openSync(temp, 'wx', statSync(real).mode & 0o777);
+  const note = statSync(real);
+  const fd = openSync(temp, 'wx', note.mode & 0o777);
   try {
+    const made = fstatSync(fd);
+    if (made.uid !== note.uid || made.gid !== note.gid) {
+      try {
+        fchownSync(fd, note.uid, note.gid);
+      } catch (error) {
+        const code = (error as NodeJS.ErrnoException).code;
+        if (code !== 'EPERM' && code !== 'EACCES') throw error;
+        closeSync(fd);
+        safeUnlink(temp);
+        return 'owner-not-kept';
+      }
+    }
+    // The mode given to open is cut by the umask (a group-writable note would lose its group's
+    // write permission); set it in full, after the owner, whose change may clear some bits.
+    fchmodSync(fd, note.mode & 0o777);
     const data = Buffer.from(text, 'utf8');
     let offset = 0;
     while (offset < data.length) offset += writeSync(fd, data, offset, data.length - offset);
