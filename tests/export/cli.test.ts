@@ -49,9 +49,9 @@ describe('notes with nothing to export, and notes that cannot be read', () => {
     const fhir = cli(dir, ['export', '.', '--format', 'fhir']);
     expect(fhir.status).toBe(2);
     const bundles = JSON.parse(fhir.stdout) as { entry?: unknown[] }[];
-    // One Bundle per readable note; a note without a timepoint gives an empty collection, its
-    // header included (as it gives no CSV row).
-    expect(bundles.map((b) => b.entry?.length ?? 0)).toEqual([0, 0, 2, 1]);
+    // One Bundle per readable note; an empty note gives an empty collection, a header alone its
+    // values (age and height: a FHIR Observation needs no time, where a CSV row needs a timepoint).
+    expect(bundles.map((b) => b.entry?.length ?? 0)).toEqual([0, 2, 2, 1]);
   });
 });
 
