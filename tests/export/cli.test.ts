@@ -247,3 +247,13 @@ describe('FHIR bundles of notes read from standard input', () => {
     expect(second[0]!.id).toBe(first[0]!.id);
   });
 });
+
+describe('check --format sarif on a POSIX file name with a backslash', () => {
+  it.skipIf(process.platform === 'win32')('names that file, percent-encoded, not a folder and a file', () => {
+    const dir = folder({ 'ward\\bed 3.pneu': '@ day 1 08:00\nvitals hr 500\n' });
+    const out = cli(dir, ['check', '.', '--format', 'sarif']);
+    const log = JSON.parse(out.stdout) as { runs: { artifacts: { location: { uri: string } }[] }[] };
+    expect(log.runs[0]!.artifacts.map((a) => a.location.uri)).toEqual(['ward%5Cbed%203.pneu']);
+    expect(decodeURIComponent(log.runs[0]!.artifacts[0]!.location.uri)).toBe('ward\\bed 3.pneu');
+  });
+});
