@@ -59,8 +59,10 @@ export function writeIfUnchanged(path: string, snapshot: ReadSnapshot, text: str
       }
     }
     // The mode given to open is cut by the umask (a group-writable note would lose its group's
-    // write permission); set it in full, after the owner, whose change may clear some bits.
-    fchmodSync(fd, note.mode & 0o777);
+    // write permission); set it in full, after the owner, whose change may clear some bits. Only
+    // when it differs: a file system without Unix permissions (a FAT memory stick) gives every
+    // file the same mode and may refuse a change.
+    if ((fstatSync(fd).mode & 0o777) !== (note.mode & 0o777)) fchmodSync(fd, note.mode & 0o777);
     const data = Buffer.from(text, 'utf8');
     let offset = 0;
     while (offset < data.length) offset += writeSync(fd, data, offset, data.length - offset);
