@@ -14,7 +14,7 @@ import { z } from 'zod';
 import { checkNote } from '../core/check-note';
 import { formatNote } from '../core/service/format';
 import { readSnapshot, writeIfUnchanged, type BeforeRename } from '../node/atomic-write';
-import { listInputs, looksBinary, MAX_NOTE_BYTES, readNote, readProblem, utf8Problem } from './inputs';
+import { binaryProblem, listInputs, looksBinary, MAX_NOTE_BYTES, readNote, readProblem, utf8Problem } from './inputs';
 import { excludeOption, EXIT, HELP, parse, UsageError, validate, type Io } from './args';
 import { visible } from './visible';
 
@@ -73,7 +73,7 @@ export function runFmt(args: readonly string[], io: Io): number {
       continue;
     }
     if (snapshot.size > MAX_NOTE_BYTES || looksBinary(snapshot.bytes)) {
-      io.stderr.write(`pneumark: ${shown}: ${snapshot.size > MAX_NOTE_BYTES ? 'too large to format' : 'looks like a binary file, not a note'}\n`);
+      io.stderr.write(`pneumark: ${shown}: ${snapshot.size > MAX_NOTE_BYTES ? 'too large to format' : binaryProblem(snapshot.bytes)}\n`);
       failed = true;
       continue;
     }

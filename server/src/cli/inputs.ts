@@ -563,7 +563,7 @@ export function readNoteBytes(path: string, cwd: string, stdin: () => Buffer): N
 export function noteFromBytes(read: NoteBytes, options: { readonly keepBom?: boolean } = {}): NoteInput {
   const { path: shown, bytes } = read;
   if (bytes === null) return { path: shown, text: null, problem: read.problem };
-  if (looksBinary(bytes)) return { path: shown, text: null, problem: 'looks like a binary file, not a note' };
+  if (looksBinary(bytes)) return { path: shown, text: null, problem: binaryProblem(bytes) };
   const notUtf8 = utf8Problem(bytes);
   if (notUtf8 !== null) return { path: shown, text: null, problem: `${notUtf8}; convert it to UTF-8 to read it` };
   let text = bytes.toString('utf8');
@@ -609,6 +609,19 @@ export function readUpTo(fd: number, limit: number): Buffer {
     total += n;
   }
   return Buffer.concat(chunks, total);
+}
+
+/**
+ * Why bytes that `looksBinary` are not a note: text in UTF-16 or UTF-32 when a byte-order mark
+ * says so (Windows editors and PowerShell 5's `>` save text as UTF-16), else a binary file.
+ */
+export function binaryProblem(bytes: Uint8Array): string {
+  const [a, b, c, d] = [bytes[0], bytes[1], bytes[2], bytes[3]];
+  const wide = (bits: 16 | 32, order: 'little' | 'big') => `is UTF-${bits} text (${order}-endian), not UTF-8: convert it to UTF-8 first`;
+  if (a === 0xff && b === 0xfe) return c === 0 && d === 0 ? wide(32, 'little') : wide(16, 'little');
+  if (a === 0 && b === 0 && c === 0xfe && d === 0xff) return wide(32, 'big');
+  if (a === 0xfe && b === 0xff) return wide(16, 'big');
+  return 'looks like a binary file, not a note';
 }
 
 /** A NUL byte in the first 8 KiB marks a binary file (as git does). */
