@@ -95,6 +95,16 @@ describe('pneumark check', async () => {
     expect(fmt.err()).toBe('pneumark: le.pneu: is UTF-16 text (little-endian), not UTF-8: convert it to UTF-8 first\n');
   });
 
+  it('a note named with a trailing slash, as a folder would be, is told so in words, not by an error code', async () => {
+    const dir = tempDir();
+    writeFileSync(join(dir, 'ward.pneu'), '@ day 1 08:00\nvitals hr 80\n');
+    for (const args of [['check', 'ward.pneu/'], ['export', '--format', 'csv', 'ward.pneu/'], ['fmt', '--check', 'ward.pneu/'], ['show', 'ward.pneu/']]) {
+      const out = memoryIo({ cwd: dir });
+      expect(await run(args, out), args.join(' ')).toBe(2);
+      expect(out.err(), args.join(' ')).toBe('pneumark: ward.pneu/: is a file, not a folder (leave out the last /)\n');
+    }
+  });
+
   it('reports missing, binary and huge files in one line each, and goes on', async () => {
     const dir = tempDir();
     writeFileSync(join(dir, 'binary.pneu'), Buffer.from([0x76, 0x00, 0x01, 0x02]));

@@ -109,6 +109,9 @@ export function listInputs(args: readonly string[], cwd: string, exclude: readon
       for (const m of globSync(`**/*${NOTE_EXTENSION}`, { cwd: abs, onlyFiles: true, dot: false, caseSensitiveMatch: false, ignore: ['**/node_modules/**'], fs: walk.fs })) {
         add(base === '.' ? toPosix(m) : `${base}/${toPosix(m)}`, from);
       }
+    } else if (/[/\\]$/.test(arg) && !(sep === '/' && arg.endsWith('\\'))) {
+      // `resolve` drops a trailing slash, but opening `ward.pneu/` fails (ENOTDIR).
+      problems.push({ path: arg, text: null, problem: TRAILING_SLASH });
     } else {
       const from: ArgumentYield = { arg, kind: 'file', root: dirname(abs), found: 0, excludedBy: new Set() };
       yields.push(from);
@@ -264,6 +267,9 @@ class WalkWatch {
 }
 
 /** Why a path named on the command line cannot be used, in a few words. */
+/** A file named as a folder is (`ward.pneu/`). */
+const TRAILING_SLASH = 'is a file, not a folder (leave out the last /)';
+
 function pathProblem(abs: string, error: unknown): string {
   const code = errorCode(error);
   if (code === 'ENOENT') return isLink(abs) ? `a symbolic link to something that does not exist (${linkTarget(abs)})` : 'no such file or folder';
@@ -578,6 +584,7 @@ export function readProblem(abs: string | null, error: unknown): string {
   if (code === 'EACCES' || code === 'EPERM') return 'permission denied';
   if (abs !== null && (code === 'ENOENT' || code === 'ELOOP')) return pathProblem(abs, error);
   if (code === 'ENOENT') return 'no such file or folder';
+  if (code === 'ENOTDIR') return abs !== null && /[/\\]$/.test(abs) && isFile(abs.slice(0, -1)) ? TRAILING_SLASH : 'a part of the path is not a folder';
   return `cannot be read (${code ?? 'unknown error'})`;
 }
 
