@@ -545,3 +545,21 @@ describe('patterns with many `**`', () => {
     expect(folder.err()).toBe('pneumark: .pneuignore: line 2 holds more than 2 `**`, which makes matching take too long on deep folders; it is not used, so the notes it names are read\n');
   });
 });
+
+describe('a note whose file name is not UTF-8', () => {
+  // Linux keeps a name's bytes as they are (a Latin-1 `café` from an old archive); macOS and
+  // Windows refuse such names, so there is nothing to meet there.
+  it.skipIf(process.platform !== 'linux')('is named as such, with how to fix it, not as missing; the other notes are read', async () => {
+    const dir = tempDir();
+    writeFileSync(Buffer.concat([Buffer.from(`${dir}/caf`), Buffer.from([0xe9]), Buffer.from('.pneu')]), '@ day 1 08:00\nvitals hr 80\n');
+    writeFileSync(join(dir, 'fine.pneu'), '@ day 1 08:00\nvitals hr 80\n');
+    for (const args of [['check', '.'], ['fmt', '--check', '.'], ['export', '--format', 'csv', '.']]) {
+      const out = io(dir);
+      expect(await run(args, out), args.join(' ')).toBe(2);
+      expect(out.err(), args.join(' ')).toBe('pneumark: caf\uFFFD.pneu: its name is not UTF-8 (shown here with \uFFFD), so it cannot be opened by it; rename the file\n');
+    }
+    const checked = io(dir);
+    await run(['check', '.'], checked);
+    expect(checked.out()).toMatch(/1 note checked, 1 could not be checked/);
+  });
+});

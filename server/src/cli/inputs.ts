@@ -272,12 +272,26 @@ const TRAILING_SLASH = 'is a file, not a folder (leave out the last /)';
 
 function pathProblem(abs: string, error: unknown): string {
   const code = errorCode(error);
+  if (code === 'ENOENT' && abs.includes('\uFFFD') && undecodableName(abs)) return NAME_NOT_UTF8;
   if (code === 'ENOENT') return isLink(abs) ? `a symbolic link to something that does not exist (${linkTarget(abs)})` : 'no such file or folder';
   if (code === 'ELOOP') return 'a loop of symbolic links';
   if (code === 'EACCES' || code === 'EPERM') return 'permission denied (a folder on the way to it cannot be searched)';
   if (code === 'ENOTDIR') return 'a part of the path is not a folder';
   if (code === 'ENAMETOOLONG') return 'the path is too long';
   return `cannot be read (${code ?? 'unknown error'})`;
+}
+
+/** A file whose name is not UTF-8: listed (with U+FFFD for each bad byte), but not to be opened by that name. */
+const NAME_NOT_UTF8 = 'its name is not UTF-8 (shown here with \uFFFD), so it cannot be opened by it; rename the file';
+
+/** Whether the folder of `abs` holds a name that is not UTF-8 and reads as its last part. */
+function undecodableName(abs: string): boolean {
+  const name = basename(abs);
+  try {
+    return readdirSync(dirname(abs), { encoding: 'buffer' }).some((bytes) => !isUtf8(bytes) && bytes.toString('utf8') === name);
+  } catch {
+    return false;
+  }
 }
 
 function isLink(abs: string): boolean {
