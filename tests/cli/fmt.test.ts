@@ -245,3 +245,17 @@ describe('fmt --write on a note with several names (hard links)', () => {
     expect(readFileSync(join(dir, 'single.pneu'), 'utf8')).toBe(tidy);
   });
 });
+
+describe('fmt --write on a note with a long name', () => {
+  it('rewrites it: the temporary file beside it must fit the file system\'s limit on a name too', async () => {
+    const dir = tempDir();
+    // 250 bytes, under the usual limit of 255 bytes a name.
+    const name = `${'ward-'.repeat(49)}.pneu`;
+    writeFileSync(join(dir, name), messy);
+    const out = io(dir);
+    expect(await run(['fmt', '--write', name], out)).toBe(0);
+    expect(out.err()).toBe('');
+    expect(readFileSync(join(dir, name), 'utf8')).toBe(tidy);
+    expect(readdirSync(dir)).toEqual([name]);
+  });
+});

@@ -154,5 +154,6 @@ function writeProblem(error: unknown): string {
   if (code === 'ENOSPC') return 'no space left on the disk';
   if (code === 'EDQUOT') return 'disk quota exceeded';
   if (code === 'EROFS') return 'read-only file system';
-  return error instanceof Error ? error.message : String(error);
+  // Node's message ends with the call and the path (`, open '/notes/.a.pneu.pneumark-….tmp'`).
+  return error instanceof Error ? error.message.replace(/, \w+ '[^]*'$/, '') : String(error);
 }

@@ -42,7 +42,7 @@ export function writeIfUnchanged(path: string, snapshot: ReadSnapshot, text: str
   // counts as a change on disk.
   const real = realpathSync.native(path);
   if (real !== snapshot.realPath) return 'changed-on-disk';
-  const temp = join(dirname(real), `.${basename(real)}.pneumark-${process.pid}-${Date.now()}.tmp`);
+  const temp = join(dirname(real), tempName(basename(real)));
   const note = statSync(real);
   const fd = openSync(temp, 'wx', note.mode & 0o777);
   try {
@@ -85,6 +85,23 @@ export function writeIfUnchanged(path: string, snapshot: ReadSnapshot, text: str
     safeUnlink(temp);
     throw error;
   }
+}
+
+/** The most bytes a file name may have on common file systems (ext4, XFS, APFS, NTFS in UTF-16 units). */
+const NAME_MAX_BYTES = 255;
+
+/**
+ * The temporary file's name: the note's own in it where it fits (a leftover is then easy to place),
+ * else the note's name cut to fit: a note whose name is near the limit must still be rewritable.
+ */
+function tempName(note: string): string {
+  const suffix = `.pneumark-${process.pid}-${Date.now()}.tmp`;
+  const room = NAME_MAX_BYTES - 1 - Buffer.byteLength(suffix);
+  let kept = note;
+  while (Buffer.byteLength(kept) > room) kept = kept.slice(0, Math.max(0, kept.length - Math.ceil((Buffer.byteLength(kept) - room) / 4)));
+  // A cut between the two halves of a surrogate pair would leave half a character.
+  if (/[\uD800-\uDBFF]$/.test(kept)) kept = kept.slice(0, -1);
+  return `.${kept}${suffix}`;
 }
 
 function unchanged(path: string, snapshot: ReadSnapshot): boolean {
