@@ -158,6 +158,26 @@ describe('exclusions for notes outside the working folder', () => {
     expect(reported(out.out())).toEqual(['ward/one.pneu']);
   });
 
+  it('take a path written from the working folder (./, ../, as tab completion writes it) as that path', async () => {
+    const top = tempDir();
+    mkdirSync(join(top, 'work', 'ward', 'old'), { recursive: true });
+    mkdirSync(join(top, 'notes'), { recursive: true });
+    writeFileSync(join(top, 'work', 'one.pneu'), alarming);
+    writeFileSync(join(top, 'work', 'draft.pneu'), alarming);
+    writeFileSync(join(top, 'work', 'ward', 'two.pneu'), alarming);
+    writeFileSync(join(top, 'work', 'ward', 'old', 'three.pneu'), alarming);
+    writeFileSync(join(top, 'notes', 'four.pneu'), alarming);
+    writeFileSync(join(top, 'notes', 'five.pneu'), alarming);
+    const cwd = join(top, 'work');
+    const out = io(cwd);
+    await run(['check', '.', '../notes', '--exclude', './draft.pneu', '--exclude', './ward/old/', '--exclude', '../notes/five.pneu'], out);
+    expect(reported(out.out())).toEqual(['../notes/four.pneu', 'one.pneu', 'ward/two.pneu']);
+    // With a wildcard, anchored in the working folder as a leading / is in gitignore syntax.
+    const pattern = io(cwd);
+    await run(['check', '.', '--exclude', './*.pneu'], pattern);
+    expect(reported(pattern.out())).toEqual(['ward/old/three.pneu', 'ward/two.pneu']);
+  });
+
   it('take an absolute path to a folder or file as that path, inside the working folder or outside it', async () => {
     const top = tempDir();
     mkdirSync(join(top, 'work', 'ward', 'old'), { recursive: true });

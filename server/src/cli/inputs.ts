@@ -344,14 +344,22 @@ function exclusions(cwd: string, exclude: readonly string[], ignoreFiles: Ignore
  * as a shell's tab completion writes it), apart from gitignore patterns. In gitignore syntax a
  * leading `/` anchors a pattern to the working folder, so such a value would match nothing; it is
  * taken as an absolute path when that path exists and the anchored reading (below the working
- * folder) does not. Everything at or below such a path is left out.
+ * folder) does not. So are values that start with `./` or `../` (a path from the working folder, as a
+ * shell's tab completion writes it), which gitignore syntax would match against nothing; with a
+ * wildcard, `./` becomes the anchoring `/`. Everything at or below such a path is left out.
  */
 function splitExclusions(cwd: string, exclude: readonly string[]): { paths: string[]; patterns: string[] } {
   const paths: string[] = [];
   const patterns: string[] = [];
   for (const value of exclude) {
     if (isAbsolute(value) && existsSync(value) && !existsSync(join(cwd, value))) paths.push(resolve(value));
-    else patterns.push(value);
+    else if (/^\.\.?(\/|$)/.test(value)) {
+      // `./draft.pneu`, `../notes/old`: a path from the working folder, which gitignore syntax
+      // would match against nothing. A wildcard after `./` is anchored there, as a leading `/` is.
+      if (!isDynamicPattern(value)) paths.push(resolve(cwd, value));
+      else if (value.startsWith('./')) patterns.push(`/${value.replace(/^(\.\/)+/, '')}`);
+      else patterns.push(value);
+    } else patterns.push(value);
   }
   return { paths, patterns };
 }
