@@ -259,3 +259,18 @@ describe('fmt --write on a note with a long name', () => {
     expect(readdirSync(dir)).toEqual([name]);
   });
 });
+
+describe('fmt --check and --write on what is not a regular file', () => {
+  // /dev/zero never ends: read whole, it would fill the memory before anything is said.
+  it.skipIf(process.platform !== 'linux')('say so at once and go on with the notes, without reading it whole', async () => {
+    const dir = tempDir();
+    writeFileSync(join(dir, 'n.pneu'), messy);
+    for (const mode of ['--check', '--write']) {
+      const out = io(dir);
+      expect(await run(['fmt', mode, '/dev/zero', 'n.pneu'], out), mode).toBe(2);
+      // The path is shown from the working folder (../../dev/zero).
+      expect(out.err(), mode).toMatch(/^pneumark: (\.\.\/)*dev\/zero: is not a regular file \(a device, pipe or socket\); fmt --check and --write work on files, `pneumark fmt PATH` prints it formatted\n$/);
+    }
+    expect(readFileSync(join(dir, 'n.pneu'), 'utf8')).toBe(tidy);
+  });
+});

@@ -13,7 +13,7 @@ import { isAbsolute, join } from 'node:path';
 import { z } from 'zod';
 import { checkNote } from '../core/check-note';
 import { formatNote } from '../core/service/format';
-import { readSnapshot, writeIfUnchanged, type BeforeRename } from '../node/atomic-write';
+import { NotRegularFile, readSnapshot, writeIfUnchanged, type BeforeRename } from '../node/atomic-write';
 import { binaryProblem, listInputs, looksBinary, MAX_NOTE_BYTES, readNote, readProblem, utf8Problem } from './inputs';
 import { excludeOption, EXIT, HELP, parse, UsageError, validate, type Io } from './args';
 import { visible } from './visible';
@@ -26,6 +26,8 @@ const fmtOptions = z.object({
 }).refine((o) => !(o.check && o.write), { message: 'use either --check or --write, not both', path: ['check'] })
   // --force lets --write rewrite notes with syntax errors; elsewhere it would be silently ignored.
   .refine((o) => !o.force || o.write, { message: 'only applies to --write (it lets --write rewrite notes with syntax errors)', path: ['force'] });
+
+const NOT_REGULAR = 'is not a regular file (a device, pipe or socket); fmt --check and --write work on files, `pneumark fmt PATH` prints it formatted';
 
 /** Test hook for the race and interruption tests. */
 export const fmtHooks: { beforeRename: BeforeRename | undefined } = { beforeRename: undefined };
@@ -68,7 +70,7 @@ export function runFmt(args: readonly string[], io: Io): number {
     try {
       snapshot = readSnapshot(abs);
     } catch (error) {
-      io.stderr.write(`pneumark: ${shown}: ${readProblem(abs, error)}\n`);
+      io.stderr.write(`pneumark: ${shown}: ${error instanceof NotRegularFile ? NOT_REGULAR : readProblem(abs, error)}\n`);
       failed = true;
       continue;
     }

@@ -24,8 +24,13 @@ export interface ReadSnapshot {
   readonly links: number;
 }
 
+/** Thrown by `readSnapshot` for what is not a regular file (a device, pipe or socket). */
+export class NotRegularFile extends Error {}
+
 export function readSnapshot(path: string): ReadSnapshot {
   const realPath = realpathSync.native(path);
+  // A device or a pipe may never end (/dev/zero): read whole, it would fill the memory.
+  if (!statSync(realPath).isFile()) throw new NotRegularFile(realPath);
   const bytes = readFileSync(realPath);
   const stat = statSync(realPath);
   return { bytes, text: bytes.toString('utf8'), mtimeMs: stat.mtimeMs, size: stat.size, realPath, links: stat.nlink };
