@@ -157,5 +157,8 @@ function writeProblem(error: unknown): string {
   if (code === 'EDQUOT') return 'disk quota exceeded';
   if (code === 'EROFS') return 'read-only file system';
   // Node's message ends with the call and the path (`, open '/notes/.a.pneu.pneumark-….tmp'`).
-  return error instanceof Error ? error.message.replace(/, \w+ '[^]*'$/, '') : String(error);
+  if (!(error instanceof Error)) return String(error);
+  const quote = error.message.indexOf(" '");
+  const at = quote < 0 ? -1 : error.message.lastIndexOf(', ', quote);
+  return at < 0 ? error.message : error.message.slice(0, at);
 }

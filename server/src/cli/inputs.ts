@@ -642,15 +642,34 @@ export function readUpTo(fd: number, limit: number): Buffer {
 
 /**
  * Why bytes that `looksBinary` are not a note: text in UTF-16 or UTF-32 when a byte-order mark
- * says so (Windows editors and PowerShell 5's `>` save text as UTF-16), else a binary file.
+ * says so and what follows reads as a note would in that encoding (Windows editors and PowerShell
+ * 5's `>` save text as UTF-16), else a binary file.
  */
 export function binaryProblem(bytes: Uint8Array): string {
   const [a, b, c, d] = [bytes[0], bytes[1], bytes[2], bytes[3]];
-  const wide = (bits: 16 | 32, order: 'little' | 'big') => `is UTF-${bits} text (${order}-endian), not UTF-8: convert it to UTF-8 first`;
-  if (a === 0xff && b === 0xfe) return c === 0 && d === 0 ? wide(32, 'little') : wide(16, 'little');
-  if (a === 0 && b === 0 && c === 0xfe && d === 0xff) return wide(32, 'big');
-  if (a === 0xfe && b === 0xff) return wide(16, 'big');
-  return 'looks like a binary file, not a note';
+  const wide = (bits: 2 | 4, big: boolean): string | null =>
+    readsAsText(bytes, bits, big) ? `is UTF-${bits * 8} text (${big ? 'big' : 'little'}-endian), not UTF-8: convert it to UTF-8 first` : null;
+  let problem: string | null = null;
+  if (a === 0xff && b === 0xfe) problem = c === 0 && d === 0 ? wide(4, false) : wide(2, false);
+  else if (a === 0 && b === 0 && c === 0xfe && d === 0xff) problem = wide(4, true);
+  else if (a === 0xfe && b === 0xff) problem = wide(2, true);
+  return problem ?? 'looks like a binary file, not a note';
+}
+
+/**
+ * Whether the code units after a byte-order mark (the first 2,048) read as a note would: no
+ * control character but tab and line breaks, and mostly ASCII (sections, keys and numbers are).
+ */
+function readsAsText(bytes: Uint8Array, width: 2 | 4, big: boolean): boolean {
+  let units = 0;
+  let ascii = 0;
+  for (let at = width; at + width <= bytes.length && units < 2048; at += width, units++) {
+    let unit = 0;
+    for (let k = 0; k < width; k++) unit = unit * 256 + bytes[big ? at + k : at + width - 1 - k]!;
+    if (unit < 0x20 && unit !== 0x09 && unit !== 0x0a && unit !== 0x0d) return false;
+    if (unit < 0x80) ascii++;
+  }
+  return units > 0 && ascii * 2 >= units;
 }
 
 /** A NUL byte in the first 8 KiB marks a binary file (as git does). */
