@@ -76,6 +76,35 @@ describe('pneumark check', async () => {
     expect(file.timepoints?.length).toBe(10);
   });
 
+  it('names a note saved as UTF-16 or UTF-32 (a byte-order mark says so) as such, not as a binary file, in check and fmt', async () => {
+    // Windows editors and PowerShell 5's `>` save text as UTF-16 with a byte-order mark.
+    const text = '@ day 1 08:00\nvitals hr 80\n';
+    const dir = tempDir();
+    writeFileSync(join(dir, 'le.pneu'), Buffer.concat([Buffer.from([0xff, 0xfe]), Buffer.from(text, 'utf16le')]));
+    writeFileSync(join(dir, 'be.pneu'), Buffer.concat([Buffer.from([0xfe, 0xff]), Buffer.from(text, 'utf16le').swap16()]));
+    writeFileSync(join(dir, 'wide.pneu'), Buffer.from([0xff, 0xfe, 0x00, 0x00, 0x40, 0x00, 0x00, 0x00]));
+    const out = io();
+    expect(await run(['check', join(dir, 'be.pneu'), join(dir, 'le.pneu'), join(dir, 'wide.pneu')], out)).toBe(2);
+    const lines = out.err().trim().split('\n');
+    expect(lines).toHaveLength(3);
+    expect(lines[0]).toMatch(/be\.pneu: is UTF-16 text \(big-endian\), not UTF-8: convert it to UTF-8 first$/);
+    expect(lines[1]).toMatch(/le\.pneu: is UTF-16 text \(little-endian\), not UTF-8: convert it to UTF-8 first$/);
+    expect(lines[2]).toMatch(/wide\.pneu: is UTF-32 text \(little-endian\), not UTF-8: convert it to UTF-8 first$/);
+    const fmt = memoryIo({ cwd: dir });
+    expect(await run(['fmt', '--write', 'le.pneu'], fmt)).toBe(2);
+    expect(fmt.err()).toBe('pneumark: le.pneu: is UTF-16 text (little-endian), not UTF-8: convert it to UTF-8 first\n');
+  });
+
+  it('a note named with a trailing slash, as a folder would be, is told so in words, not by an error code', async () => {
+    const dir = tempDir();
+    writeFileSync(join(dir, 'ward.pneu'), '@ day 1 08:00\nvitals hr 80\n');
+    for (const args of [['check', 'ward.pneu/'], ['export', '--format', 'csv', 'ward.pneu/'], ['fmt', '--check', 'ward.pneu/'], ['show', 'ward.pneu/']]) {
+      const out = memoryIo({ cwd: dir });
+      expect(await run(args, out), args.join(' ')).toBe(2);
+      expect(out.err(), args.join(' ')).toBe('pneumark: ward.pneu/: is a file, not a folder (leave out the last /)\n');
+    }
+  });
+
   it('reports missing, binary and huge files in one line each, and goes on', async () => {
     const dir = tempDir();
     writeFileSync(join(dir, 'binary.pneu'), Buffer.from([0x76, 0x00, 0x01, 0x02]));

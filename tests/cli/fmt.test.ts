@@ -1,8 +1,9 @@
 // `pneumark fmt` on awkward files: names that look like patterns, symbolic links, notes that are
 // not UTF-8, byte-order marks when printing, and what it says when inputs are missing.
-import { lstatSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, readlinkSync, statSync, symlinkSync, writeFileSync, chmodSync } from 'node:fs';
+import { chownSync, copyFileSync, linkSync, lstatSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, readlinkSync, statSync, symlinkSync, writeFileSync, chmodSync } from 'node:fs';
+import { spawnSync } from 'node:child_process';
 import { tmpdir } from 'node:os';
-import { join } from 'node:path';
+import { join, resolve } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { memoryIo, type MemoryIo } from '../helpers/memory-io';
 import { run } from '../../server/src/cli/main';
@@ -164,5 +165,112 @@ describe('fmt --force', () => {
       expect(out.err()).toBe('pneumark fmt: --force: only applies to --write (it lets --write rewrite notes with syntax errors)\n');
     }
     expect(readFileSync(join(dir, 'n.pneu'), 'utf8')).toBe(messy);
+  });
+});
+
+describe('fmt --write keeps a note’s permissions', () => {
+  it('whatever the umask would take away from a new file (group and others may write a shared note)', async () => {
+    const dir = tempDir();
+    for (const [name, mode] of [['ward.pneu', 0o664], ['open.pneu', 0o666], ['own.pneu', 0o600]] as const) {
+      writeFileSync(join(dir, name), messy);
+      chmodSync(join(dir, name), mode);
+    }
+    const out = io(dir);
+    expect(await run(['fmt', '--write', '.'], out)).toBe(0);
+    expect(out.err()).toBe('');
+    for (const [name, mode] of [['ward.pneu', 0o664], ['open.pneu', 0o666], ['own.pneu', 0o600]] as const) {
+      expect(readFileSync(join(dir, name), 'utf8'), name).toBe(tidy);
+      expect((statSync(join(dir, name)).mode & 0o777).toString(8), name).toBe(mode.toString(8));
+    }
+  });
+});
+
+describe('fmt --write keeps who owns a note', () => {
+  const asRoot = process.getuid?.() === 0;
+  const NOBODY = 65534;
+
+  // Only root can give a file to another user, so these run where CI runs (as root).
+  it.skipIf(!asRoot)('a note of another user rewritten by root stays theirs, with its group', async () => {
+    const dir = tempDir();
+    const note = join(dir, 'shared.pneu');
+    writeFileSync(note, messy);
+    chmodSync(note, 0o640);
+    chownSync(note, NOBODY, NOBODY);
+    const out = io(dir);
+    expect(await run(['fmt', '--write', 'shared.pneu'], out)).toBe(0);
+    expect(readFileSync(note, 'utf8')).toBe(tidy);
+    const after = statSync(note);
+    expect([after.uid, after.gid]).toEqual([NOBODY, NOBODY]);
+    expect(after.mode & 0o777).toBe(0o640);
+  });
+
+  it.skipIf(!asRoot || process.platform === 'win32')('a user who may write a note of someone else, but not give a file away, leaves it as it is', () => {
+    // The note is root's and writable by all, in a folder anyone may write in: the user nobody
+    // could put a new file in its place, but that file would be nobody's, and root would lose it.
+    const dir = tempDir();
+    chmodSync(dir, 0o777);
+    const note = join(dir, 'ward.pneu');
+    writeFileSync(note, messy);
+    chmodSync(note, 0o666);
+    const bin = tempDir();
+    chmodSync(bin, 0o755);
+    copyFileSync(resolve('dist/cli.js'), join(bin, 'cli.js'));
+    const r = spawnSync('setpriv', ['--reuid=65534', '--regid=65534', '--clear-groups', process.execPath, join(bin, 'cli.js'), 'fmt', '--write', 'ward.pneu'], { cwd: dir, encoding: 'utf8', env: { ...process.env, NO_COLOR: '1' } });
+    if (r.error) throw r.error;
+    expect(r.stderr).toBe('pneumark: ward.pneu: owned by another user or group, which a rewritten file could not keep; not rewritten\n');
+    expect(r.status).toBe(2);
+    expect(readFileSync(note, 'utf8')).toBe(messy);
+    expect(statSync(note).uid).toBe(0);
+    expect(readdirSync(dir)).toEqual(['ward.pneu']);
+  });
+});
+
+describe('fmt --write on a note with several names (hard links)', () => {
+  it('leaves it as it is: a new file would take one name and leave the others with the old text', async () => {
+    const dir = tempDir();
+    writeFileSync(join(dir, 'today.pneu'), messy);
+    linkSync(join(dir, 'today.pneu'), join(dir, 'archive.pneu'));
+    const out = io(dir);
+    expect(await run(['fmt', '--write', 'today.pneu'], out)).toBe(2);
+    expect(out.err()).toBe('pneumark: today.pneu: has 2 names (hard links), which a rewritten file would separate; not rewritten\n');
+    expect(out.out()).toBe('');
+    expect(readFileSync(join(dir, 'today.pneu'), 'utf8')).toBe(messy);
+    expect(statSync(join(dir, 'today.pneu')).ino).toBe(statSync(join(dir, 'archive.pneu')).ino);
+    // --check still lists it; a note with one name is rewritten as before.
+    const checked = io(dir);
+    expect(await run(['fmt', '--check', 'today.pneu'], checked)).toBe(1);
+    expect(checked.out()).toBe('today.pneu\n');
+    writeFileSync(join(dir, 'single.pneu'), messy);
+    expect(await run(['fmt', '--write', 'single.pneu'], io(dir))).toBe(0);
+    expect(readFileSync(join(dir, 'single.pneu'), 'utf8')).toBe(tidy);
+  });
+});
+
+describe('fmt --write on a note with a long name', () => {
+  it('rewrites it: the temporary file beside it must fit the file system\'s limit on a name too', async () => {
+    const dir = tempDir();
+    // 250 bytes, under the usual limit of 255 bytes a name.
+    const name = `${'ward-'.repeat(49)}.pneu`;
+    writeFileSync(join(dir, name), messy);
+    const out = io(dir);
+    expect(await run(['fmt', '--write', name], out)).toBe(0);
+    expect(out.err()).toBe('');
+    expect(readFileSync(join(dir, name), 'utf8')).toBe(tidy);
+    expect(readdirSync(dir)).toEqual([name]);
+  });
+});
+
+describe('fmt --check and --write on what is not a regular file', () => {
+  // /dev/zero never ends: read whole, it would fill the memory before anything is said.
+  it.skipIf(process.platform !== 'linux')('say so at once and go on with the notes, without reading it whole', async () => {
+    const dir = tempDir();
+    writeFileSync(join(dir, 'n.pneu'), messy);
+    for (const mode of ['--check', '--write']) {
+      const out = io(dir);
+      expect(await run(['fmt', mode, '/dev/zero', 'n.pneu'], out), mode).toBe(2);
+      // The path is shown from the working folder (../../dev/zero).
+      expect(out.err(), mode).toMatch(/^pneumark: (\.\.\/)*dev\/zero: is not a regular file \(a device, pipe or socket\); fmt --check and --write work on files, `pneumark fmt PATH` prints it formatted\n$/);
+    }
+    expect(readFileSync(join(dir, 'n.pneu'), 'utf8')).toBe(tidy);
   });
 });

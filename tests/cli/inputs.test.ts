@@ -158,6 +158,26 @@ describe('exclusions for notes outside the working folder', () => {
     expect(reported(out.out())).toEqual(['ward/one.pneu']);
   });
 
+  it('take a path written from the working folder (./, ../, as tab completion writes it) as that path', async () => {
+    const top = tempDir();
+    mkdirSync(join(top, 'work', 'ward', 'old'), { recursive: true });
+    mkdirSync(join(top, 'notes'), { recursive: true });
+    writeFileSync(join(top, 'work', 'one.pneu'), alarming);
+    writeFileSync(join(top, 'work', 'draft.pneu'), alarming);
+    writeFileSync(join(top, 'work', 'ward', 'two.pneu'), alarming);
+    writeFileSync(join(top, 'work', 'ward', 'old', 'three.pneu'), alarming);
+    writeFileSync(join(top, 'notes', 'four.pneu'), alarming);
+    writeFileSync(join(top, 'notes', 'five.pneu'), alarming);
+    const cwd = join(top, 'work');
+    const out = io(cwd);
+    await run(['check', '.', '../notes', '--exclude', './draft.pneu', '--exclude', './ward/old/', '--exclude', '../notes/five.pneu'], out);
+    expect(reported(out.out())).toEqual(['../notes/four.pneu', 'one.pneu', 'ward/two.pneu']);
+    // With a wildcard, anchored in the working folder as a leading / is in gitignore syntax.
+    const pattern = io(cwd);
+    await run(['check', '.', '--exclude', './*.pneu'], pattern);
+    expect(reported(pattern.out())).toEqual(['ward/old/three.pneu', 'ward/two.pneu']);
+  });
+
   it('take an absolute path to a folder or file as that path, inside the working folder or outside it', async () => {
     const top = tempDir();
     mkdirSync(join(top, 'work', 'ward', 'old'), { recursive: true });
@@ -566,5 +586,23 @@ describe('patterns with many `**`', () => {
     expect(await run(['check', '.'], folder)).toBe(2);
     expect(reported(folder.out())).toEqual([`${deep}/n.pneu`]);
     expect(folder.err()).toBe('pneumark: .pneuignore: line 2 holds more than 2 `**`, which makes matching take too long on deep folders; it is not used, so the notes it names are read\n');
+  });
+});
+
+describe('a note whose file name is not UTF-8', () => {
+  // Linux keeps a name's bytes as they are (a Latin-1 `café` from an old archive); macOS and
+  // Windows refuse such names, so there is nothing to meet there.
+  it.skipIf(process.platform !== 'linux')('is named as such, with how to fix it, not as missing; the other notes are read', async () => {
+    const dir = tempDir();
+    writeFileSync(Buffer.concat([Buffer.from(`${dir}/caf`), Buffer.from([0xe9]), Buffer.from('.pneu')]), '@ day 1 08:00\nvitals hr 80\n');
+    writeFileSync(join(dir, 'fine.pneu'), '@ day 1 08:00\nvitals hr 80\n');
+    for (const args of [['check', '.'], ['fmt', '--check', '.'], ['export', '--format', 'csv', '.']]) {
+      const out = io(dir);
+      expect(await run(args, out), args.join(' ')).toBe(2);
+      expect(out.err(), args.join(' ')).toBe('pneumark: caf\uFFFD.pneu: its name is not UTF-8 (shown here with \uFFFD), so it cannot be opened by it; rename the file\n');
+    }
+    const checked = io(dir);
+    await run(['check', '.'], checked);
+    expect(checked.out()).toMatch(/1 note checked, 1 could not be checked/);
   });
 });

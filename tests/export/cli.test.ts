@@ -49,9 +49,9 @@ describe('notes with nothing to export, and notes that cannot be read', () => {
     const fhir = cli(dir, ['export', '.', '--format', 'fhir']);
     expect(fhir.status).toBe(2);
     const bundles = JSON.parse(fhir.stdout) as { entry?: unknown[] }[];
-    // One Bundle per readable note; a note without a timepoint gives an empty collection, its
-    // header included (as it gives no CSV row).
-    expect(bundles.map((b) => b.entry?.length ?? 0)).toEqual([0, 0, 2, 1]);
+    // One Bundle per readable note; an empty note gives an empty collection, a header alone its
+    // values (age and height: a FHIR Observation needs no time, where a CSV row needs a timepoint).
+    expect(bundles.map((b) => b.entry?.length ?? 0)).toEqual([0, 2, 2, 1]);
   });
 });
 
@@ -245,5 +245,15 @@ describe('FHIR bundles of notes read from standard input', () => {
     writeFileSync(join(dir, 'n.pneu'), other);
     const second = JSON.parse(cli(dir, ['export', 'n.pneu', '--format', 'fhir']).stdout) as { id: string }[];
     expect(second[0]!.id).toBe(first[0]!.id);
+  });
+});
+
+describe('check --format sarif on a POSIX file name with a backslash', () => {
+  it.skipIf(process.platform === 'win32')('names that file, percent-encoded, not a folder and a file', () => {
+    const dir = folder({ 'ward\\bed 3.pneu': '@ day 1 08:00\nvitals hr 500\n' });
+    const out = cli(dir, ['check', '.', '--format', 'sarif']);
+    const log = JSON.parse(out.stdout) as { runs: { artifacts: { location: { uri: string } }[] }[] };
+    expect(log.runs[0]!.artifacts.map((a) => a.location.uri)).toEqual(['ward%5Cbed%203.pneu']);
+    expect(decodeURIComponent(log.runs[0]!.artifacts[0]!.location.uri)).toBe('ward\\bed 3.pneu');
   });
 });

@@ -70,6 +70,24 @@ describe('observations', () => {
     for (const o of header) expect(o.effectiveDateTime).toBeUndefined();
   });
 
+  it('header values of a note that has no timepoint yet, valid FHIR', () => {
+    const header = toFhirBundle('intake.pneu', checked('patient   age 40 y, height 170 cm, weight 70 kg\n'), noAnchor);
+    expect(observations(header).map((o) => [o.id, o.valueQuantity?.value, o.valueQuantity?.code])).toEqual([
+      ['obs-header-age', 40, 'a'], ['obs-header-height', 170, 'cm'], ['obs-header-weight', 70, 'kg'],
+    ]);
+    expect(validator.validate(header, true)).toEqual([]);
+  });
+
+  it('a header value restated at the first timepoint: the header’s value and the timepoint’s, each once', () => {
+    const restated = toFhirBundle('weighed.pneu', checked('patient   age 40 y, weight 70 kg\n@ day 1 08:00\npatient   weight 72 kg\nvitals    hr 80\n'), noAnchor);
+    expect(observations(restated).map((o) => [o.id, o.valueQuantity?.value])).toEqual([
+      ['obs-header-age', 40], ['obs-header-weight', 70], ['obs-0-weight', 72], ['obs-0-hr', 80],
+    ]);
+    // Stated twice in the header: the later value, as everywhere else (PN206).
+    const twice = toFhirBundle('twice.pneu', checked('patient   weight 70 kg, weight 71 kg\n@ day 1 08:00\nvitals    hr 80\n'), noAnchor);
+    expect(observations(twice).map((o) => [o.id, o.valueQuantity?.value])).toEqual([['obs-header-weight', 71], ['obs-0-hr', 80]]);
+  });
+
   it('LOINC from the registry, UCUM from the unit registry, canonical value', () => {
     const pao2 = byId(bundle, 'obs-0-pao2')!;
     expect(pao2.status).toBe('final');

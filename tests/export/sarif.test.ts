@@ -190,6 +190,17 @@ describe('files', () => {
     expect(artifactUri(path)).toBe(uri);
   });
 
+  it('a backslash is a separator only where paths use it: on POSIX systems it is a character of the name', () => {
+    // `a\\b.pneu` is one file on Linux and macOS; read as `a/b.pneu` the log would point to another.
+    expect(artifactUri('a\\b.pneu', { backslashSeparates: false })).toBe('a%5Cb.pneu');
+    expect(artifactUri('notes/a\\b.pneu', { backslashSeparates: false })).toBe('notes/a%5Cb.pneu');
+    expect(artifactUri('/srv/a\\b.pneu', { backslashSeparates: false })).toBe('file:///srv/a%5Cb.pneu');
+    expect(artifactUri('a\\b.pneu')).toBe('a/b.pneu');
+    const log = toSarifLog([{ path: 'a\\b.pneu', result: checked('@ day 1 08:00\nvitals hr 500'), problem: null }], { toolVersion: '0', backslashSeparates: false });
+    expect(run(log).artifacts).toEqual([{ location: { uri: 'a%5Cb.pneu', uriBaseId: SARIF_URI_BASE_ID } }]);
+    expect(validate(log).errors).toEqual([]);
+  });
+
   it('relative URIs name their base (SRCROOT, declared on the run without a local address); absolute ones do not', () => {
     const log = toSarifLog([
       { path: 'notes/a.pneu', result: checked('@ day 1 08:00\nvitals hr 500'), problem: null },

@@ -65,7 +65,8 @@ Options:
   --format text|json|sarif   output format (default text); sarif is SARIF 2.1.0 for code-scanning tools
   --quiet                    list error findings only (text, json and sarif; totals count all)
   --max-warnings N           exit 1 when there are more than N warnings (N a whole number, 0 or more)
-  --exclude PATTERN          leave out paths matching PATTERN (gitignore syntax) or an absolute path; repeatable
+  --exclude PATTERN          leave out paths matching PATTERN (gitignore syntax), or a
+                             path (absolute, or from ./ or ../); repeatable
   --jobs N                   worker threads (0 or 1: none); default one per core, up to 4, from 2000 notes
   --no-progress              no progress bar, even on a terminal`,
   export: `Usage: pneumark export PATH... --format csv|jsonl|fhir [options]
@@ -83,7 +84,8 @@ Options:
   --spreadsheet-safe         CSV only: an apostrophe before text starting with = + - @ tab, a carriage
                              return or ' (undo by removing one), and a byte-order mark; for files
                              opened in spreadsheet programs (the default output stays exact)
-  --exclude PATTERN          leave out paths matching PATTERN (gitignore syntax) or an absolute path; repeatable
+  --exclude PATTERN          leave out paths matching PATTERN (gitignore syntax), or a
+                             path (absolute, or from ./ or ../); repeatable
   --jobs N                   worker threads (0 or 1: none); default one per core, up to 4, from 2000 notes
   --no-progress              no progress bar, even on a terminal
 Columns are listed in README.md ("Export columns").`,
@@ -93,12 +95,15 @@ Without --check or --write, prints the formatted note (one file only).
 
 Options:
   --check                    list notes whose layout would change; exit 1 if any
-  --write                    rewrite notes in place, atomically; a note with syntax errors is left
-                             alone unless --force, and a read-only note, or one changed on disk
-                             while being formatted, is never overwritten
+  --write                    rewrite notes in place, atomically, keeping their permissions, owner
+                             and group; a note with syntax errors is left alone unless --force, and
+                             a read-only note, one changed on disk while being formatted, one with
+                             several names (hard links) or one whose owner the new file could not
+                             keep is never overwritten
   --force                    with --write: also rewrite notes that have syntax errors (their broken
                              lines are kept as they are)
-  --exclude PATTERN          leave out paths matching PATTERN (gitignore syntax) or an absolute path; repeatable`,
+  --exclude PATTERN          leave out paths matching PATTERN (gitignore syntax), or a
+                             path (absolute, or from ./ or ../); repeatable`,
   docs: `Usage: pneumark docs [--write FILE] [--grammar FILE] [--readme FILE]
 
 Prints (or writes) the documentation of every check, generated from the check registry.

@@ -2,7 +2,9 @@
  * `pneumark fmt`: the editor's formatter over files. `--check` lists notes whose layout would
  * change; `--write` rewrites them atomically (a note reached through a symbolic link where the link
  * leads) and never over a note that has syntax errors (unless --force), that is not UTF-8 text, or
- * that changed on disk while being formatted. A byte-order mark is kept, when printing too. Paths in
+ * that changed on disk while being formatted, nor over one with several names (hard links: the new
+ * file would take one of them only) or whose owner and group the new file could not be given. Its
+ * permissions are kept whatever the umask. A byte-order mark is kept, when printing too. Paths in
  * its messages have their control characters made visible (see `visible`); a note printed formatted
  * is the note itself, written as it is.
  */
@@ -11,8 +13,8 @@ import { isAbsolute, join } from 'node:path';
 import { z } from 'zod';
 import { checkNote } from '../core/check-note';
 import { formatNote } from '../core/service/format';
-import { readSnapshot, writeIfUnchanged, type BeforeRename } from '../node/atomic-write';
-import { listInputs, looksBinary, MAX_NOTE_BYTES, readNote, readProblem, utf8Problem } from './inputs';
+import { NotRegularFile, readSnapshot, writeIfUnchanged, type BeforeRename } from '../node/atomic-write';
+import { binaryProblem, listInputs, looksBinary, MAX_NOTE_BYTES, readNote, readProblem, utf8Problem } from './inputs';
 import { excludeOption, EXIT, HELP, parse, UsageError, validate, type Io } from './args';
 import { visible } from './visible';
 
@@ -24,6 +26,8 @@ const fmtOptions = z.object({
 }).refine((o) => !(o.check && o.write), { message: 'use either --check or --write, not both', path: ['check'] })
   // --force lets --write rewrite notes with syntax errors; elsewhere it would be silently ignored.
   .refine((o) => !o.force || o.write, { message: 'only applies to --write (it lets --write rewrite notes with syntax errors)', path: ['force'] });
+
+const NOT_REGULAR = 'is not a regular file (a device, pipe or socket); fmt --check and --write work on files, `pneumark fmt PATH` prints it formatted';
 
 /** Test hook for the race and interruption tests. */
 export const fmtHooks: { beforeRename: BeforeRename | undefined } = { beforeRename: undefined };
@@ -66,12 +70,12 @@ export function runFmt(args: readonly string[], io: Io): number {
     try {
       snapshot = readSnapshot(abs);
     } catch (error) {
-      io.stderr.write(`pneumark: ${shown}: ${readProblem(abs, error)}\n`);
+      io.stderr.write(`pneumark: ${shown}: ${error instanceof NotRegularFile ? NOT_REGULAR : readProblem(abs, error)}\n`);
       failed = true;
       continue;
     }
     if (snapshot.size > MAX_NOTE_BYTES || looksBinary(snapshot.bytes)) {
-      io.stderr.write(`pneumark: ${shown}: ${snapshot.size > MAX_NOTE_BYTES ? 'too large to format' : 'looks like a binary file, not a note'}\n`);
+      io.stderr.write(`pneumark: ${shown}: ${snapshot.size > MAX_NOTE_BYTES ? 'too large to format' : binaryProblem(snapshot.bytes)}\n`);
       failed = true;
       continue;
     }
@@ -97,6 +101,12 @@ export function runFmt(args: readonly string[], io: Io): number {
       failed = true;
       continue;
     }
+    // A rename gives the new text to this name only: the note's other names would keep the old one.
+    if (snapshot.links > 1) {
+      io.stderr.write(`pneumark: ${shown}: has ${snapshot.links} names (hard links), which a rewritten file would separate; not rewritten\n`);
+      failed = true;
+      continue;
+    }
     const syntaxErrors = checkNote(text).findings.filter((f) => f.severity === 'error' && /^PN1/.test(f.code));
     if (syntaxErrors.length > 0 && !opts.force) {
       io.stderr.write(`pneumark: ${shown}: not rewritten: ${syntaxErrors.length} syntax error(s), first at line ${syntaxErrors[0]!.range.start.line + 1}; fix them or use --force\n`);
@@ -108,6 +118,9 @@ export function runFmt(args: readonly string[], io: Io): number {
       const outcome = writeIfUnchanged(abs, snapshot, bom + formatted, fmtHooks.beforeRename);
       if (outcome === 'changed-on-disk') {
         io.stderr.write(`pneumark: ${shown}: changed on disk while being formatted; left as it is\n`);
+        failed = true;
+      } else if (outcome === 'owner-not-kept') {
+        io.stderr.write(`pneumark: ${shown}: owned by another user or group, which a rewritten file could not keep; not rewritten\n`);
         failed = true;
       } else {
         io.stdout.write(`formatted ${shown}\n`);
@@ -143,5 +156,9 @@ function writeProblem(error: unknown): string {
   if (code === 'ENOSPC') return 'no space left on the disk';
   if (code === 'EDQUOT') return 'disk quota exceeded';
   if (code === 'EROFS') return 'read-only file system';
-  return error instanceof Error ? error.message : String(error);
+  // Node's message ends with the call and the path (`, open '/notes/.a.pneu.pneumark-….tmp'`).
+  if (!(error instanceof Error)) return String(error);
+  const quote = error.message.indexOf(" '");
+  const at = quote < 0 ? -1 : error.message.lastIndexOf(', ', quote);
+  return at < 0 ? error.message : error.message.slice(0, at);
 }

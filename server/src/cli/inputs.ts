@@ -110,6 +110,9 @@ export function listInputs(args: readonly string[], cwd: string, exclude: readon
       for (const m of globSync(`**/*${NOTE_EXTENSION}`, { cwd: abs, onlyFiles: true, dot: false, caseSensitiveMatch: false, ignore: ['**/node_modules/**'], fs: walk.fs })) {
         add(base === '.' ? toPosix(m) : `${base}/${toPosix(m)}`, from);
       }
+    } else if (/[/\\]$/.test(arg) && !(sep === '/' && arg.endsWith('\\'))) {
+      // `resolve` drops a trailing slash, but opening `ward.pneu/` fails (ENOTDIR).
+      problems.push({ path: arg, text: null, problem: TRAILING_SLASH });
     } else {
       const from: ArgumentYield = { arg, kind: 'file', root: dirname(abs), found: 0, excludedBy: new Set() };
       yields.push(from);
@@ -265,14 +268,31 @@ class WalkWatch {
 }
 
 /** Why a path named on the command line cannot be used, in a few words. */
+/** A file named as a folder is (`ward.pneu/`). */
+const TRAILING_SLASH = 'is a file, not a folder (leave out the last /)';
+
 function pathProblem(abs: string, error: unknown): string {
   const code = errorCode(error);
+  if (code === 'ENOENT' && abs.includes('\uFFFD') && undecodableName(abs)) return NAME_NOT_UTF8;
   if (code === 'ENOENT') return isLink(abs) ? `a symbolic link to something that does not exist (${linkTarget(abs)})` : 'no such file or folder';
   if (code === 'ELOOP') return 'a loop of symbolic links';
   if (code === 'EACCES' || code === 'EPERM') return 'permission denied (a folder on the way to it cannot be searched)';
   if (code === 'ENOTDIR') return 'a part of the path is not a folder';
   if (code === 'ENAMETOOLONG') return 'the path is too long';
   return `cannot be read (${code ?? 'unknown error'})`;
+}
+
+/** A file whose name is not UTF-8: listed (with U+FFFD for each bad byte), but not to be opened by that name. */
+const NAME_NOT_UTF8 = 'its name is not UTF-8 (shown here with \uFFFD), so it cannot be opened by it; rename the file';
+
+/** Whether the folder of `abs` holds a name that is not UTF-8 and reads as its last part. */
+function undecodableName(abs: string): boolean {
+  const name = basename(abs);
+  try {
+    return readdirSync(dirname(abs), { encoding: 'buffer' }).some((bytes) => !isUtf8(bytes) && bytes.toString('utf8') === name);
+  } catch {
+    return false;
+  }
 }
 
 function isLink(abs: string): boolean {
@@ -325,14 +345,22 @@ function exclusions(cwd: string, exclude: readonly string[], ignoreFiles: Ignore
  * as a shell's tab completion writes it), apart from gitignore patterns. In gitignore syntax a
  * leading `/` anchors a pattern to the working folder, so such a value would match nothing; it is
  * taken as an absolute path when that path exists and the anchored reading (below the working
- * folder) does not. Everything at or below such a path is left out.
+ * folder) does not. So are values that start with `./` or `../` (a path from the working folder, as a
+ * shell's tab completion writes it), which gitignore syntax would match against nothing; with a
+ * wildcard, `./` becomes the anchoring `/`. Everything at or below such a path is left out.
  */
 function splitExclusions(cwd: string, exclude: readonly string[]): { paths: string[]; patterns: string[] } {
   const paths: string[] = [];
   const patterns: string[] = [];
   for (const value of exclude) {
     if (isAbsolute(value) && existsSync(value) && !existsSync(join(cwd, value))) paths.push(resolve(value));
-    else patterns.push(value);
+    else if (/^\.\.?(\/|$)/.test(value)) {
+      // `./draft.pneu`, `../notes/old`: a path from the working folder, which gitignore syntax
+      // would match against nothing. A wildcard after `./` is anchored there, as a leading `/` is.
+      if (!isDynamicPattern(value)) paths.push(resolve(cwd, value));
+      else if (value.startsWith('./')) patterns.push(`/${value.replace(/^(\.\/)+/, '')}`);
+      else patterns.push(value);
+    } else patterns.push(value);
   }
   return { paths, patterns };
 }
@@ -567,7 +595,7 @@ export function readNoteBytes(path: string, cwd: string, stdin: () => Buffer): N
 export function noteFromBytes(read: NoteBytes, options: { readonly keepBom?: boolean } = {}): NoteInput {
   const { path: shown, bytes } = read;
   if (bytes === null) return { path: shown, text: null, problem: read.problem };
-  if (looksBinary(bytes)) return { path: shown, text: null, problem: 'looks like a binary file, not a note' };
+  if (looksBinary(bytes)) return { path: shown, text: null, problem: binaryProblem(bytes) };
   const notUtf8 = utf8Problem(bytes);
   if (notUtf8 !== null) return { path: shown, text: null, problem: `${notUtf8}; convert it to UTF-8 to read it` };
   let text = bytes.toString('utf8');
@@ -582,6 +610,7 @@ export function readProblem(abs: string | null, error: unknown): string {
   if (code === 'EACCES' || code === 'EPERM') return 'permission denied';
   if (abs !== null && (code === 'ENOENT' || code === 'ELOOP')) return pathProblem(abs, error);
   if (code === 'ENOENT') return 'no such file or folder';
+  if (code === 'ENOTDIR') return abs !== null && /[/\\]$/.test(abs) && isFile(abs.slice(0, -1)) ? TRAILING_SLASH : 'a part of the path is not a folder';
   return `cannot be read (${code ?? 'unknown error'})`;
 }
 
@@ -613,6 +642,38 @@ export function readUpTo(fd: number, limit: number): Buffer {
     total += n;
   }
   return Buffer.concat(chunks, total);
+}
+
+/**
+ * Why bytes that `looksBinary` are not a note: text in UTF-16 or UTF-32 when a byte-order mark
+ * says so and what follows reads as a note would in that encoding (Windows editors and PowerShell
+ * 5's `>` save text as UTF-16), else a binary file.
+ */
+export function binaryProblem(bytes: Uint8Array): string {
+  const [a, b, c, d] = [bytes[0], bytes[1], bytes[2], bytes[3]];
+  const wide = (bits: 2 | 4, big: boolean): string | null =>
+    readsAsText(bytes, bits, big) ? `is UTF-${bits * 8} text (${big ? 'big' : 'little'}-endian), not UTF-8: convert it to UTF-8 first` : null;
+  let problem: string | null = null;
+  if (a === 0xff && b === 0xfe) problem = c === 0 && d === 0 ? wide(4, false) : wide(2, false);
+  else if (a === 0 && b === 0 && c === 0xfe && d === 0xff) problem = wide(4, true);
+  else if (a === 0xfe && b === 0xff) problem = wide(2, true);
+  return problem ?? 'looks like a binary file, not a note';
+}
+
+/**
+ * Whether the code units after a byte-order mark (the first 2,048) read as a note would: no
+ * control character but tab and line breaks, and mostly ASCII (sections, keys and numbers are).
+ */
+function readsAsText(bytes: Uint8Array, width: 2 | 4, big: boolean): boolean {
+  let units = 0;
+  let ascii = 0;
+  for (let at = width; at + width <= bytes.length && units < 2048; at += width, units++) {
+    let unit = 0;
+    for (let k = 0; k < width; k++) unit = unit * 256 + bytes[big ? at + k : at + width - 1 - k]!;
+    if (unit < 0x20 && unit !== 0x09 && unit !== 0x0a && unit !== 0x0d) return false;
+    if (unit < 0x80) ascii++;
+  }
+  return units > 0 && ascii * 2 >= units;
 }
 
 /** A NUL byte in the first 8 KiB marks a binary file (as git does). */

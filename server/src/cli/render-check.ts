@@ -3,6 +3,7 @@
  * JSON: the stable shape documented in README.md ("JSON output"), version 1. SARIF 2.1.0. All
  * three are written in pieces (a big folder's output is larger than one string can hold).
  */
+import { sep } from 'node:path';
 import { CHECKS } from '../core/checks/registry';
 import { sarifLogParts, type SarifConfigurationProblem } from '../core/export/sarif';
 import { PNEUMARK_VERSION } from '../core/version';
@@ -223,7 +224,7 @@ export function renderCheckJson(outcomes: readonly FileOutcome[]): string {
  */
 export async function writeCheckSarif(outcomes: readonly FileOutcome[], quiet: boolean, out: Sink, configurationProblems: readonly SarifConfigurationProblem[] = []): Promise<void> {
   const files = outcomes.map((o) => ({ path: o.path, findings: o.findings.filter((f) => !quiet || f.severity === 'error'), problem: o.problem }));
-  const { log, resultsOf } = sarifLogParts(files, { toolVersion: PNEUMARK_VERSION, configurationProblems });
+  const { log, resultsOf } = sarifLogParts(files, { toolVersion: PNEUMARK_VERSION, configurationProblems, backslashSeparates: sep === '\\' });
   const whole = JSON.stringify(log, null, 2);
   // `results` is the last member of the only run: its empty list is the last one in the text.
   const empty = '"results": []';

@@ -12,7 +12,8 @@
  *   place (altitude, barometric pressure: the surroundings, not the patient) are not exported;
  *   CSV and JSON Lines have them;
  * - each header value (patient line before the first timepoint), once per note and without a
- *   time: age, height, weight describe the patient for the whole note;
+ *   time: age, height, weight describe the patient for the whole note (also in a note with no
+ *   timepoint, and beside the value of a timepoint that states the field again);
  * - of the derived values, only those LOINC has a code for: the P/F ratio (Horowitz index,
  *   50984-4, value in mmHg), with `derivedFrom` pointing at the PaO2 and FiO2 Observations it
  *   used (at this timepoint or, for a carried FiO2, the one that stated it);
@@ -421,9 +422,11 @@ export function toFhirBundle(path: string, result: NoteResult, options: FhirOpti
 
   const timepoints = result.analysis.timeline.timepoints;
 
-  // Header values, once.
+  // Header values, once: read from the header itself, not from the values in force at the
+  // timepoints, where a note without a timepoint has none and a value restated at the first
+  // timepoint has replaced the header's. Stated twice there, the later one (PN206).
   const header = new Map<string, InputValue>();
-  for (const tp of timepoints) for (const [id, input] of tp.values) if (input.origin.kind === 'header' && !header.has(id)) header.set(id, input);
+  for (const s of result.analysis.timeline.header) header.set(s.fieldId, { stated: s, origin: { kind: 'header', line: s.line, span: s.item.span } });
   const headerPlace: Place = { key: 'header', effective: null, note: 'Pneumark note header (describes the patient for the whole note)', device: null, mode: null };
   for (const field of FIELDS) {
     const input = header.get(field.id);

@@ -30,6 +30,6 @@ export {
   type FhirQuantity,
   type ObservationCategory,
 } from './fhir';
-export { artifactLocationOf, artifactUri, SARIF_SCHEMA, SARIF_URI_BASE_ID, sarifLogParts, toSarifLog, type SarifConfigurationProblem, type SarifFile, type SarifOptions } from './sarif';
+export { artifactLocationOf, artifactUri, SARIF_SCHEMA, SARIF_URI_BASE_ID, sarifLogParts, toSarifLog, type PathStyle, type SarifConfigurationProblem, type SarifFile, type SarifOptions } from './sarif';
 export { stableUuid } from './stable-id';
 export { ucumCode, unitSlug } from './units';

@@ -15,7 +15,8 @@
  *   core's ranges do. An empty range becomes an empty region (start = end), a point.
  * - A finding's fixes become `fixes`, each one artifact change whose replacements delete the
  *   edit's region and insert its text.
- * - Paths: backslashes become `/`, a leading `./` is dropped, and each segment is
+ * - Paths: backslashes become `/` (unless `backslashSeparates` is false: on POSIX systems a
+ *   backslash is a character of a file name, percent-encoded as `%5C`), a leading `./` is dropped, and each segment is
  *   percent-encoded as a URI reference requires (`my notes/a.pneu` → `my%20notes/a.pneu`). A
  *   relative path (the CLI gives paths relative to the working folder) is a relative URI with
  *   `uriBaseId: "SRCROOT"`, declared in the run's `originalUriBaseIds` without an absolute address
@@ -48,6 +49,11 @@ export interface SarifFile {
 export interface SarifOptions {
   /** The version of pneumark that produced the log; left out when not given. */
   readonly toolVersion: string;
+  /**
+   * Whether a backslash in a path separates folders, as on Windows (the default). False where it
+   * is a character of a name (Linux, macOS: `ward\bed.pneu` is one file), so it is kept, encoded.
+   */
+  readonly backslashSeparates?: boolean;
   /**
    * Problems of the settings files (`pneumark.config.json`) the run read: each becomes a tool
    * configuration notification (level error) and makes the execution unsuccessful, as the CLI's
@@ -84,6 +90,13 @@ export const SARIF_URI_BASE_ID = 'SRCROOT';
 /** How the CLI names standard input (`check -`). */
 const STDIN_PATH = '<stdin>';
 
+/** How the paths given are written: whether a backslash separates folders (see `SarifOptions`). */
+export interface PathStyle {
+  readonly backslashSeparates?: boolean;
+}
+
+const WINDOWS_OR_POSIX: PathStyle = { backslashSeparates: true };
+
 const encodeSegments = (path: string): string => path.split('/').map((segment) => encodeURIComponent(segment)).join('/');
 
 /**
@@ -91,8 +104,8 @@ const encodeSegments = (path: string): string => path.split('/').map((segment) =
  * percent-encoded, a leading `./` dropped); an absolute path (`/notes/a.pneu`, `C:\notes\a.pneu`,
  * `\\server\share\a.pneu`) as an absolute `file:` URI.
  */
-export function artifactUri(path: string): string {
-  const slashed = path.replace(/\\/g, '/');
+export function artifactUri(path: string, options: PathStyle = WINDOWS_OR_POSIX): string {
+  const slashed = options.backslashSeparates === false ? path : path.replace(/\\/g, '/');
   if (/^\/\/[^/]/.test(slashed)) {
     const [host = '', ...rest] = slashed.slice(2).split('/');
     return `file://${encodeURIComponent(host)}/${encodeSegments(rest.join('/'))}`;
@@ -107,9 +120,9 @@ export function artifactUri(path: string): string {
  * Where a path is, as SARIF says it: a relative URI with `uriBaseId` (resolved against
  * `SRCROOT`), an absolute `file:` URI alone, or for standard input no URI at all (a description).
  */
-export function artifactLocationOf(path: string): Sarif.ArtifactLocation {
+export function artifactLocationOf(path: string, options: PathStyle = WINDOWS_OR_POSIX): Sarif.ArtifactLocation {
   if (path === STDIN_PATH) return { description: { text: 'standard input' } };
-  const uri = artifactUri(path);
+  const uri = artifactUri(path, options);
   return uri.startsWith('file:') ? { uri } : { uri, uriBaseId: SARIF_URI_BASE_ID };
 }
 
@@ -177,10 +190,11 @@ export function toSarifLog(files: readonly SarifFile[], options?: SarifOptions):
  */
 export function sarifLogParts(files: readonly SarifFile[], options?: SarifOptions): { readonly log: Sarif.Log; resultsOf(file: SarifFile): Sarif.Result[] } {
   const ruleIndex = new Map(CHECKS.map((c, i) => [c.code, i]));
+  const style: PathStyle = { backslashSeparates: options?.backslashSeparates ?? true };
   const artifacts: Sarif.Artifact[] = [];
   const artifactIndex = new Map<string, number>();
   const locationOf = (path: string): Sarif.ArtifactLocation => {
-    const location = artifactLocationOf(path);
+    const location = artifactLocationOf(path, style);
     const key = location.uri ?? path;
     let index = artifactIndex.get(key);
     if (index === undefined) {
@@ -200,7 +214,7 @@ export function sarifLogParts(files: readonly SarifFile[], options?: SarifOption
   }
 
   const configuration: Sarif.Notification[] = (options?.configurationProblems ?? []).map((p) => {
-    const location = artifactLocationOf(p.path);
+    const location = artifactLocationOf(p.path, style);
     const region = p.line === null ? {} : { region: { startLine: p.line, ...(p.column === null ? {} : { startColumn: p.column }) } };
     return { level: 'error', message: { text: p.message }, locations: [{ physicalLocation: { artifactLocation: location, ...region } }] };
   });
