@@ -251,14 +251,27 @@ function unitsLineInsertion(result: NoteResult): number {
  * in doubt when the note keeps its unit); in a bare shorthand gas, the other pressure is converted
  * and left bare beside it. Converting twice changes nothing the second time.
  *
- * The converted note keeps the findings of physiology (PN4xx) and the reading bands of every
- * timepoint: where the usual decimals would move one (a PaO2 rounded across the alveolar limit of
+ * The converted note keeps the findings of physiology (PN4xx) and the bands of its notable
+ * readings at every timepoint (in a note of up to 400 timepoints): where the usual decimals would move one (a PaO2 rounded across the alveolar limit of
  * PN401), the timepoint's pressures get more decimals, or the number at one end of what the
  * written one stands for; where no number does, they keep their number and unit as written.
  */
 export function convertNoteUnits(result: NoteResult, to: GasUnit): TextEdit[] {
+  let known = CONVERSIONS.get(result);
+  if (!known) CONVERSIONS.set(result, (known = {}));
+  return (known[to] ??= keepingOutcomes(result, to));
+}
+
+/**
+ * Whole-note conversions by analysis: code actions ask at every move of the cursor, and each
+ * conversion reads the converted note again.
+ */
+const CONVERSIONS = new WeakMap<NoteResult, Partial<Record<GasUnit, TextEdit[]>>>();
+
+/** `convertNoteUnits` without the memo. */
+function keepingOutcomes(result: NoteResult, to: GasUnit): TextEdit[] {
   let edits = conversionEdits(result, to, NO_EXTRA);
-  if (edits.length === 0) return edits;
+  if (edits.length === 0 || result.analysis.timeline.timepoints.length > VERIFIED_UP_TO_TIMEPOINTS) return edits;
   // The note as converted must read as the note does: the same physiology findings and reading
   // bands at every timepoint. Rounding to a unit's usual decimals can move a value across a
   // threshold (PaO2 101 mmHg, 1 mmHg inside the alveolar limit of PN401, is 13.5 kPa = 101.26
@@ -290,6 +303,13 @@ export function convertNoteUnits(result: NoteResult, to: GasUnit): TextEdit[] {
   // within the HCO3 tolerance only at its upper end, 50.6 mmHg, is no one number in mmHg).
   return edits;
 }
+
+/**
+ * The most timepoints of a note whose conversion is read again to keep its findings: reading a
+ * converted note of thousands of timepoints takes seconds, too long for an action offered at
+ * every move of the cursor, so a longer note is converted with the usual decimals only.
+ */
+const VERIFIED_UP_TO_TIMEPOINTS = 400;
 
 /** How the pressures of one timepoint are written: decimals more than usual, and which number. */
 interface Choice {
@@ -326,30 +346,44 @@ const RETRIES: readonly Choice[] = [
 const NO_EXTRA = (): Choice => NEAREST;
 
 /**
- * What a conversion must keep, per timepoint: the codes of its physiology findings (PN4xx) and its
- * readings with their numbers and units taken out (`PaO2 10.3 kPa (77 mmHg): consistent with …`
- * and `PaO2 77 mmHg: consistent with …` read alike). Findings of units and plausibility may change
- * by design (a bare value in doubt is read in the new unit, where it is ordinary).
+ * What a conversion must keep, per timepoint: its physiology findings (PN4xx), each with its
+ * message without numbers and units (`PaO2 10.3 kPa (77 mmHg): consistent with …` and `PaO2 77
+ * mmHg: consistent with …` read alike), so that a notable reading keeps its band too. Findings
+ * the checks already made: no timepoint is derived again for this. Findings of units and
+ * plausibility may change by design (a bare value in doubt is read in the new unit).
  */
 function outcomes(result: NoteResult): string[] {
-  const findings = result.findings;
-  return result.analysis.timeline.timepoints.map((tp) => {
-    const codes: string[] = [];
-    for (const f of findings) if (f.code.startsWith('PN4') && f.range.start.line >= tp.startLine && f.range.start.line <= tp.endLine) codes.push(f.code);
-    codes.sort();
-    const readings = result.analysis.derivation(tp.index).interpretations.map((i) => `${i.topic}${i.notable ? '!' : ''}: ${withoutNumbers(i.text)}`);
-    return `${codes.join(' ')} | ${readings.join(' | ')}`;
-  });
+  const timepoints = result.analysis.timeline.timepoints;
+  const out = new Array<string>(timepoints.length).fill('');
+  if (timepoints.length === 0) return out;
+  const lineCount = result.analysis.tree.lines.length;
+  const timepointAt = new Int32Array(lineCount).fill(-1);
+  for (const tp of timepoints) for (let line = Math.max(0, tp.startLine); line <= tp.endLine && line < lineCount; line++) timepointAt[line] = tp.index;
+  const parts: string[][] = timepoints.map(() => []);
+  for (const f of result.findings) {
+    if (!f.code.startsWith('PN4')) continue;
+    const at = timepointAt[f.range.start.line] ?? -1;
+    if (at >= 0) parts[at]?.push(`${f.code} ${withoutNumbers(f.message)}`);
+  }
+  for (let i = 0; i < parts.length; i++) out[i] = parts[i]!.sort().join(' | ');
+  return out;
 }
 
-/** A reading's words without its numbers, units and parenthesised figures. */
+/**
+ * A message's words without its numbers, units, bracketed figures and blanks: what a band is
+ * named by (no regular expression here may backtrack: tests/hostile checks them all).
+ */
 function withoutNumbers(text: string): string {
-  let out = text;
-  for (let before = ''; before !== out;) {
-    before = out;
-    out = out.replace(/\s*\([^()]*\d[^()]*\)/g, '');
+  // Bracketed text left out, by depth (a regular expression would scan again from every bracket).
+  let out = '';
+  let depth = 0;
+  for (let i = 0; i < text.length; i++) {
+    const c = text.charCodeAt(i);
+    if (c === 0x28) depth++;
+    else if (c === 0x29) depth = depth > 0 ? depth - 1 : 0;
+    else if (depth === 0) out += text.charAt(i);
   }
-  return out.replace(/-?\d+(?:\.\d+)?/g, '#').replace(/\s*\b(?:kPa|mmHg)\b/g, '');
+  return out.replace(/\d+(?:\.\d+)?/g, '#').replace(/\b(?:kPa|mmHg)\b/g, '').replace(/\s+/g, '');
 }
 
 /** `convertNoteUnits` with each converted value written as `extraOf(value)` chooses. */
