@@ -37,17 +37,19 @@ export function formatShort(value: number, max = 2): string {
 
 /**
  * Decimals at which `value` shows on the same side of every threshold given as it is: from
- * `decimals` up to 2 more. A PaO2 of 59.6 against 60 shows as 59.6, not as 60 next to "below 60".
- * Up to four thresholds, passed one by one (no list per call: readings run at every gas).
+ * `decimals` up to as many as it takes (6 at most). A PaO2 of 59.6 against 60 shows as 59.6, not
+ * as 60 next to "below 60"; a range end of 26.995 against 27 as 26.995, where 27.00 would put it
+ * on 27. Up to four thresholds, passed one by one (no list per call: readings run at every gas).
  */
 export function decimalsAgainst(value: number, decimals: number, t1: number, t2 = NaN, t3 = NaN, t4 = NaN): number {
   if (!Number.isFinite(value)) return decimals;
   // Compared as written on paper: a quotient that is on a threshold stays on it (see forBand).
   const exact = Math.round(value * 1e9) / 1e9;
-  for (let d = decimals; d < decimals + 2; d++) {
+  const most = Math.max(decimals, 6);
+  for (let d = decimals; d < most; d++) {
     if (keepsSide(value, exact, d, t1) && keepsSide(value, exact, d, t2) && keepsSide(value, exact, d, t3) && keepsSide(value, exact, d, t4)) return d;
   }
-  return decimals + 2;
+  return most;
 }
 
 /** Whether `value` shown with `d` decimals is on the same side of `t` as it is (NaN: no threshold). */
