@@ -131,7 +131,9 @@ describe('inlay hints in a kPa note', () => {
     const md = derivedHover(hco3!, tp);
     // 0.0307 mmol/L per mmHg (Henderson–Hasselbalch): PaCO2 9.1 kPa = 68.26 mmHg.
     expect(ucumMmhg(9.1)).toBeCloseTo(68.26, 2);
-    expect(md).toContain('With the numbers, in mmHg (PaCO2 9.1 kPa = 68 mmHg): `0.0307 × 68 × 10^(7.28 − 6.1) = ');
+    // 0.0307 × 68 × 10^1.18 is 31.6, not the 31.7 shown: the PaCO2 is given to a tenth (68.3), in the
+    // conversion as in the formula, so the numbers give the value shown.
+    expect(md).toContain('With the numbers, in mmHg (PaCO2 9.1 kPa = 68.3 mmHg): `0.0307 × 68.3 × 10^(7.28 − 6.1) = 31.7 mmol/L');
     // The upper normal of the A–a gradient is a rule in mmHg: its result says the kPa too.
     const upper = result.analysis.derivation(tp.index).derived.find((d) => d.id === 'aa_gradient_upper_normal')!;
     expect(derivedHover(upper, tp)).toContain('With the numbers, in mmHg: `71 ÷ 4 + 4 = 22 mmHg = 2.9 kPa`');

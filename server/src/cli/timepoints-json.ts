@@ -3,6 +3,17 @@ import type { NoteResult } from '../core/check-note';
 import type { Timepoint } from '../core/analysis/model';
 import type { InputOrigin, TimepointDerivation } from '../core/derive/model';
 import { displayUnit } from '../core/analysis/read-value';
+import { exportedNumber } from '../core/export/precision';
+
+/** A number as every export writes it (12 significant digits: see core/export/precision.ts). */
+const num = exportedNumber;
+
+/** A stated value as JSON: a word, the numbers of a pair, or a number. */
+function statedJson(value: string | readonly number[] | number | null): string | readonly number[] | number | null {
+  if (value === null || typeof value === 'string') return value;
+  if (typeof value === 'number') return num(value);
+  return value.map((n) => num(n) ?? n);
+}
 
 export interface JsonValue {
   readonly field: string;
@@ -47,24 +58,24 @@ function timepointJson(tp: Timepoint, derivation: TimepointDerivation, writtenLa
     line: tp.line === null ? null : tp.line + 1,
     day: tp.time.day,
     minutes: tp.time.minutes,
-    barometricMmhg: tp.barometricMmhg,
+    barometricMmhg: num(tp.barometricMmhg),
     values: [...tp.values.values()].map((v): JsonValue => ({
       field: v.stated.fieldId,
-      value: v.stated.word ?? v.stated.parts ?? v.stated.value,
+      value: statedJson(v.stated.word ?? v.stated.parts ?? v.stated.value),
       unit: v.stated.unit === null ? null : displayUnit(v.stated.unit),
       origin: originJson(v.origin),
       usable: v.stated.usable,
     })),
     derived: derivation.derived.map((d) => ({
       id: d.id,
-      value: d.value,
-      ...(d.range ? { low: d.range.low, high: d.range.high } : {}),
+      value: num(d.value),
+      ...(d.range ? { low: num(d.range.low), high: num(d.range.high) } : {}),
       unit: d.unit,
       formula: d.formula,
       substituted: d.substituted,
       estimate: d.estimate,
       usesCarried: d.usesCarried,
-      inputs: d.inputs.map((t) => ({ name: t.name, value: t.value, unit: t.unit, origin: originJson(t.origin), ...(t.note ? { note: t.note } : {}) })),
+      inputs: d.inputs.map((t) => ({ name: t.name, value: num(t.value), unit: t.unit, origin: originJson(t.origin), ...(t.note ? { note: t.note } : {}) })),
       notes: d.notes,
       source: d.source,
     })),

@@ -12,6 +12,7 @@ import { formatNumber, wordList } from '../util/format';
 import { describeOrigin, kpaResolutionMmhg } from '../present';
 import type { DerivedCategory, DerivedValue, InputOrigin, MissingValue, NotApplicable, Term } from './model';
 import { NONE } from '../util/lists';
+import { reproducingSubstitution, termWithExtra } from './reproduce';
 import { MODES_WITH_BACKUP_RATE, MODES_WITH_SET_BREATHS, OSCILLATION_MODE } from '../physiology/mechanics';
 import { keptFor, SmallStore, type Kept } from '../util/small-store';
 
@@ -580,10 +581,16 @@ class ComputedValue implements DerivedValue {
     if (this.#shown === null) {
       const range = this.range;
       const result = range ? `${formatNumber(range.low, this.decimals)}–${formatNumber(range.high, this.decimals)}` : formatNumber(this.value, this.decimals);
-      this.#shown = `${substitute(this.template, this.inputs)} = ${result}${this.unit ? ` ${this.unit}` : ''}`;
+      const left = reproducingSubstitution(this.template, this.inputs, substitute, termShownWith, result, this.decimals);
+      this.#shown = `${left} = ${result}${this.unit ? ` ${this.unit}` : ''}`;
     }
     return this.#shown;
   }
+}
+
+/** A term's number with `extra` decimals more where it needs them (see reproduce.ts). */
+function termShownWith(t: Term, extra: number): string {
+  return termWithExtra(t.value, t.decimals, extra);
 }
 
 /** A term's number as a formula shows it. */

@@ -113,7 +113,7 @@ class GasWords {
   outside(mmHg: number, resolution: number, low: number, high: number, end: number): string {
     const d = this.rangeDecimals(low, high, mmHg, resolution);
     // The end as shown, in mmHg: what `value` compares with (in kPa it converts it back).
-    const shownEnd = this.kpa ? Number(kpaFromMmhg(end).toFixed(d)) * MMHG_PER_KPA : Number(end.toFixed(d));
+    const shownEnd = this.kpa ? Number(formatNumber(kpaFromMmhg(end), d)) * MMHG_PER_KPA : Number(formatNumber(end, d));
     return this.measured(mmHg, resolution, shownEnd);
   }
 

@@ -23,7 +23,7 @@
  * Cells:
  * - Field values are those in force at the timepoint: stated there, carried from an earlier
  *   timepoint (settings) or from the header (patient, place, units), in the canonical unit at
- *   full precision (a gas written in kPa appears in mmHg, unrounded). A value Pneumark does not
+ *   12 significant digits (a gas written in kPa appears in mmHg: precision.ts). A value Pneumark does not
  *   use in calculations (impossible, or in a doubtful unit: see its finding) is left empty.
  * - A field whose value differs with the kind of line it is stated on (base excess of an arterial
  *   and of a venous gas) has a column per kind (`COLUMN_SECTION`): each holds the value stated on
@@ -56,6 +56,7 @@ import { DERIVED } from '../derive/registry';
 import { FIELDS, type FieldDef } from '../fields/registry';
 import { sectionById, type SectionId } from '../fields/sections';
 import type { Finding } from '../types';
+import { exportedNumber } from './precision';
 import { ucumCode, unitForPeople, unitSlug } from './units';
 
 export type ColumnKind = 'timepoint' | 'field' | 'derived' | 'summary';
@@ -115,7 +116,8 @@ interface Column extends ColumnDef {
 
 const MINUTES_PER_DAY = 1440;
 
-const finite = (value: number | null | undefined): number | null => (value !== null && value !== undefined && Number.isFinite(value) ? value : null);
+/** A number as the exports write it (`exportedNumber`: 12 significant digits), null when not finite. */
+const finite = exportedNumber;
 
 function timepointColumns(): Column[] {
   const meta = (name: string, type: ColumnDef['type'], unit: 'min' | null, description: string, cell: Column['cell']): Column =>

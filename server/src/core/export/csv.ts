@@ -8,8 +8,10 @@
  *   and then stream the records of many notes (`csvRecord`).
  * - Fields are separated by commas. A field holding `"`, `,`, CR or LF is quoted, with every `"`
  *   doubled; other fields are written as they are (no trimming, any Unicode).
- * - Numbers are written by JavaScript's own conversion (`String(n)`: `72.00591128118`, `-4`,
- *   `1e+21`), independent of locale; null, NaN and infinities are written as an empty field.
+ * - Numbers are written by JavaScript's own conversion (`String(n)`: `72.0059112812`, `-4`,
+ *   `1e+21`), independent of locale; null, NaN and infinities are written as an empty field. The
+ *   cells come rounded to 12 significant digits (`exportedNumber` in precision.ts, the rule of
+ *   every export); a number is written as it is given.
  * - Text is written exactly as it is by default, even when it starts with `=`, `+`, `-` or `@`:
  *   spreadsheet programs may run such a cell (a timepoint label such as `=HYPERLINK(…)`, a file
  *   name) as a formula when the file is opened in them, while a pipeline needs the exact text.

@@ -44,7 +44,7 @@
  * on, or come from the project's reference notes. Nothing is looked up when exporting.
  *
  * Every Observation has `status: final` and a `valueQuantity` in the field's canonical unit
- * (gases in mmHg, whatever the note wrote), full precision, with the UCUM code of the unit
+ * (gases in mmHg, whatever the note wrote), to 12 significant digits (precision.ts), with the UCUM code of the unit
  * registry (`system` http://unitsofmeasure.org). There is no subject, performer or identifier:
  * notes carry none.
  *
@@ -92,6 +92,7 @@ import { FIELDS, loincFor, type FieldDef, type LoincCode } from '../fields/regis
 import { unitById } from '../fields/units';
 import type { SectionId } from '../fields/sections';
 import { assertExportOptions, writtenLabel } from './columns';
+import { exportedNumber } from './precision';
 import { stableHex128, stableUuid } from './stable-id';
 import { unitForPeople } from './units';
 
@@ -351,8 +352,9 @@ const UNIT_TEXT: Readonly<Record<string, string>> = { ph: 'pH', C: '°C', F: '°
 
 function quantity(value: number, unitId: string): FhirQuantity | null {
   const unit = unitById(unitId);
-  if (!unit || !finite(value)) return null;
-  return { value, unit: UNIT_TEXT[unitId] ?? unitForPeople(unitId) ?? unit.id, system: UCUM, code: unit.ucum };
+  const exported = exportedNumber(value);
+  if (!unit || exported === null) return null;
+  return { value: exported, unit: UNIT_TEXT[unitId] ?? unitForPeople(unitId) ?? unit.id, system: UCUM, code: unit.ucum };
 }
 
 function categoryOf(category: ObservationCategory | null): { category?: readonly FhirCodeableConcept[] } {

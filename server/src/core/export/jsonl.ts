@@ -3,7 +3,7 @@
  *
  * Shape of an object:
  * - every column of `exportColumns()`, in column order, with the same name and cell value as the
- *   CSV (numbers as JSON numbers at full precision, text as strings, null for an empty cell:
+ *   CSV (numbers as JSON numbers to 12 significant digits, precision.ts; text as strings, null for an empty cell:
  *   nulls are kept, so every object has every key);
  * - `findings`: the findings that start on the timepoint's lines (all severities, hints
  *   included), each `{ code, severity, line, column, message }` with `line` and `column`

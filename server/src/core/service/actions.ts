@@ -88,13 +88,9 @@ function valueActions(result: NoteResult, range: Range): ActionInfo[] {
   return out;
 }
 
-/** Whole-note conversions, kept per analysis: code actions are asked for at every move of the cursor. */
-const CONVERSIONS = new WeakMap<NoteResult, Partial<Record<GasUnit, TextEdit[]>>>();
-
+/** Whole-note conversions, kept per analysis by `convertNoteUnits`: code actions are asked for at every move of the cursor. */
 function noteConversion(result: NoteResult, to: GasUnit): TextEdit[] {
-  let known = CONVERSIONS.get(result);
-  if (!known) CONVERSIONS.set(result, (known = {}));
-  return (known[to] ??= convertNoteUnits(result, to));
+  return convertNoteUnits(result, to);
 }
 
 function keyOf(s: StatedValue): string {

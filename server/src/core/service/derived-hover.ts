@@ -14,7 +14,8 @@ import { displayUnit } from '../analysis/read-value';
 import { describeInputOrigin, substitute } from '../derive/context';
 import { isGasPressureValue, type DerivedValue, type Term } from '../derive/model';
 import { derivedDef } from '../derive/registry';
-import { isKpaField, kpaNumber, showsKpa, statedInKpa, statedKpaNumber, statedNumber } from '../present';
+import { reproducingExtra, reproducingSubstitution, termWithExtra } from '../derive/reproduce';
+import { isKpaField, KPA_DECIMALS, kpaFromMmhg, kpaNumber, showsKpa, statedInKpa, statedKpaNumber, statedNumber } from '../present';
 import { formatNumber } from '../util/format';
 import { cautionLine, code, escapeMarkdown, paragraphs } from './markdown';
 
@@ -68,10 +69,13 @@ function statedOfTerm(t: Term, tp: Timepoint): InputValue | undefined {
   return stated ? { stated, origin } : input;
 }
 
-/** A gas-pressure input's number in kPa: as the note wrote it where it was written in kPa. */
-function termKpa(t: Term, tp: Timepoint): string {
+/**
+ * A gas-pressure input's number in kPa: as the note wrote it where it was written in kPa, else
+ * converted, with `extra` decimals more where the formula needs them to give its value (reproduce.ts).
+ */
+function termKpa(t: Term, tp: Timepoint, extra = 0): string {
   const input = statedOfTerm(t, tp);
-  return (input ? statedKpaNumber(input.stated) : null) ?? kpaNumber(t.value);
+  return (input ? statedKpaNumber(input.stated) : null) ?? (extra === 0 ? kpaNumber(t.value) : termWithExtra(kpaFromMmhg(t.value), KPA_DECIMALS, extra));
 }
 
 /** `PaO2 71 mmHg`: an input as shown; at a kPa timepoint, a gas pressure is `PaO2 9.5 kPa (71 mmHg)`. */
@@ -133,7 +137,11 @@ function touchesKpa(d: DerivedValue, tp: Timepoint | null): tp is Timepoint {
 export function substitutedText(d: DerivedValue, tp: Timepoint | null = null): string {
   if (!touchesKpa(d, tp)) return d.substituted;
   if (holdsInKpa(d)) {
-    const left = substitute(d.template, d.inputs, (t) => (isGasTerm(t) ? termKpa(t, tp) : formatNumber(t.value, t.decimals)));
+    const shown = (t: Term, extra: number): string => (isGasTerm(t) ? termKpa(t, tp, extra) : termWithExtra(t.value, t.decimals, extra));
+    const left = d.unit === 'mmHg'
+      ? reproducingSubstitution(d.template, d.inputs, substitute, shown, kpaText(d), KPA_DECIMALS)
+      // A ratio of two pressures: the same number in either unit.
+      : reproducingSubstitution(d.template, d.inputs, substitute, shown, numberText(d), d.decimals);
     return `${left} = ${derivedValueText(d, tp)}`;
   }
   return isGasPressureValue(d) ? `${d.substituted} = ${kpaText(d)} kPa` : d.substituted;
@@ -147,11 +155,14 @@ export function substitutedText(d: DerivedValue, tp: Timepoint | null = null): s
 export function substitutedUnitNote(d: DerivedValue, tp: Timepoint | null = null): string | null {
   if (!touchesKpa(d, tp) || holdsInKpa(d)) return null;
   const converted: string[] = [];
+  // The mmHg numbers as the formula shows them: with the decimals it needs to give its value.
+  const extra = reproducingExtra(d.template, d.inputs, substitute, (t, e) => termWithExtra(t.value, t.decimals, e), numberText(d), d.decimals);
   for (const t of d.inputs) {
     if (!isGasTerm(t)) continue;
     const input = statedOfTerm(t, tp);
     if (!input || input.stated.readUnit !== 'kPa') continue;
-    converted.push(`${t.name} ${statedInKpa(input.stated) ?? ''} = ${statedNumber(input.stated) ?? formatNumber(t.value, t.decimals)} mmHg`);
+    const mmHg = extra === 0 ? (statedNumber(input.stated) ?? formatNumber(t.value, t.decimals)) : termWithExtra(t.value, t.decimals, extra);
+    converted.push(`${t.name} ${statedInKpa(input.stated) ?? ''} = ${mmHg} mmHg`);
   }
   return converted.length > 0 ? `in mmHg (${converted.join(', ')})` : 'in mmHg';
 }

@@ -7,7 +7,7 @@
  * g/L 0, g/dL 1, and one or two more where these would not convert back to the number as
  * written (`numberIn`). A converted number always gets its unit written, except a fraction.
  */
-import type { NoteResult } from '../check-note';
+import { checkNote, type NoteResult } from '../check-note';
 import type { StatedValue } from '../analysis/model';
 import { displayUnit } from '../analysis/read-value';
 import type { Bounds, FieldDef } from '../fields/registry';
@@ -19,6 +19,7 @@ import { formatNumber, formatShort } from '../util/format';
 import { ITEM_COLUMN } from './format';
 import { within, withinAsWritten } from '../analysis/bounds';
 import { allStated, lineRange, statedOnLine } from './locate';
+import { applyEdits } from './text-edits';
 
 export type GasUnit = 'mmHg' | 'kPa';
 
@@ -45,31 +46,74 @@ export function otherUnit(s: StatedValue): string | null {
  * unit at the precision written (`withinAsWritten`), so PaCO2 150 mmHg, the most that is usual, is
  * 20.0 kPa (150.01 mmHg, and as written the usual maximum).
  */
-export function numberIn(s: StatedValue, field: FieldDef, to: string): string | null {
+export function numberIn(s: StatedValue, field: FieldDef, to: string, extra = 0, lean: Lean = 'nearest'): string | null {
   const canonical = unitById(s.unit ?? '');
   const target = unitById(to);
   if (!canonical || !target || s.value === null) return null;
   const v = convert(s.value, canonical, target);
   if (v === null) return null;
-  const usual = to === '%' ? (Number.isInteger(Math.round(v * 10) / 10) ? 0 : 1) : to === 'mmHg' ? 0 : decimalsFor(to, field.decimals);
+  // `extra`: decimals more than the unit's usual ones, where the usual would move a finding (convertNoteUnits).
+  const usual = extra + (to === '%' ? (Number.isInteger(Math.round(v * 10) / 10) ? 0 : 1) : to === 'mmHg' ? 0 : decimalsFor(to, field.decimals));
   const write = (decimals: number) => (to === '%' ? formatShort(v, decimals) : formatNumber(v, decimals));
   const written = writtenNumber(s);
   const from = s.readUnit ? unitById(s.readUnit) : undefined;
-  // A possible value stays possible (200 mmHg, the most an EtCO2 can be, is 26.66 kPa: 26.7 kPa is over it).
+  // A possible value stays possible (200 mmHg, the most an EtCO2 can be, is 26.66 kPa: 26.7 kPa is over it),
+  // and a usual one usual (1 kPa, usual as written for an EtCO2 from 10 mmHg, is 10 mmHg, not 8).
   const possible = within(s.value, field.hard);
+  const usualAsWritten = written !== null && withinAsWritten(s.value, field.soft, field, s.readUnit, s.item.value?.text ?? null);
   if (written && from && from.id !== target.id) {
     for (let decimals = usual; decimals <= usual + 2; decimals++) {
-      // The nearest number, or where that is past a bound the value is within, the one on its side.
-      for (const text of [write(decimals), towardBound(v, decimals, target, canonical, field.hard)]) {
+      // The nearest number, or where that is past a bound the value is within, the one on its side;
+      // leaning, first the lowest or highest number that still converts back to the number written.
+      const candidates = [write(decimals), towardBound(v, decimals, target, canonical, field.hard), atBound(v, decimals, target, canonical, field.soft)];
+      if (lean !== 'nearest') candidates.unshift(leaningNumber(written, from, target, decimals, lean));
+      for (const text of candidates) {
         if (text === null) continue;
         const back = convert(Number(text), target, from);
         const read = convert(Number(text), target, canonical);
         if (back === null || formatNumber(back, written.decimals) !== formatNumber(written.value, written.decimals)) continue;
-        if (!possible || (read !== null && within(read, field.hard))) return text;
+        if (possible && (read === null || !within(read, field.hard))) continue;
+        if (usualAsWritten && (read === null || !withinAsWritten(read, field.soft, field, target.id, text))) continue;
+        return text;
       }
     }
   }
   return write(usual);
+}
+
+/**
+ * The bound of `bounds` (a field's usual range) `v` (in `to`) is past, written with `decimals` on
+ * its inner side; null when `v` is within. PN302 reads a number in the field's own unit as exact,
+ * so a usual value converted into it must land inside, not merely round to the bound's neighbour.
+ */
+function atBound(v: number, decimals: number, to: UnitDef, canonical: UnitDef, bounds: Bounds | undefined): string | null {
+  const read = convert(v, to, canonical);
+  if (read === null || !bounds) return null;
+  const factor = 10 ** decimals;
+  const end = bounds.min !== undefined && read < bounds.min ? convert(bounds.min, canonical, to) : bounds.max !== undefined && read > bounds.max ? convert(bounds.max, canonical, to) : null;
+  if (end === null) return null;
+  const n = read < (bounds.min ?? -Infinity) ? Math.ceil(end * factor - 1e-9) : Math.floor(end * factor + 1e-9);
+  return formatNumber(n / factor, decimals);
+}
+
+/**
+ * Which number a conversion writes among those that convert back to the number written: the
+ * nearest to the value, or (`low`, `high`) the lowest or highest. A number written as 3.8 kPa
+ * stands for 3.75–3.85 kPa, and the checks read it so (PN402); in mmHg, where a number is read
+ * as exact, 28.2 and 28.8 mmHg are both still 3.8 kPa, and one of them may read as the kPa did.
+ */
+export type Lean = 'nearest' | 'low' | 'high';
+
+/** The lowest or highest number with `decimals` (in `to`) that the written number stands for; null when none. */
+function leaningNumber(written: { value: number; decimals: number }, from: UnitDef, to: UnitDef, decimals: number, lean: 'low' | 'high'): string | null {
+  const half = 0.5 * 10 ** -written.decimals;
+  const a = convert(written.value - half, from, to);
+  const b = convert(written.value + half, from, to);
+  if (a === null || b === null) return null;
+  const factor = 10 ** decimals;
+  // Strictly inside: an end itself rounds to the next number written.
+  const n = lean === 'low' ? Math.ceil(Math.min(a, b) * factor + 1e-6) : Math.floor(Math.max(a, b) * factor - 1e-6);
+  return formatNumber(n / factor, decimals);
 }
 
 /**
@@ -206,8 +250,144 @@ function unitsLineInsertion(result: NoteResult): number {
  * them; left bare, it is read in the note's new gas unit, the one it is ordinary in (or stays
  * in doubt when the note keeps its unit); in a bare shorthand gas, the other pressure is converted
  * and left bare beside it. Converting twice changes nothing the second time.
+ *
+ * The converted note keeps the findings of physiology (PN4xx) and the bands of its notable
+ * readings at every timepoint (in a note of up to 400 timepoints): where the usual decimals would move one (a PaO2 rounded across the alveolar limit of
+ * PN401), the timepoint's pressures get more decimals, or the number at one end of what the
+ * written one stands for; where no number does, they keep their number and unit as written.
  */
 export function convertNoteUnits(result: NoteResult, to: GasUnit): TextEdit[] {
+  let known = CONVERSIONS.get(result);
+  if (!known) CONVERSIONS.set(result, (known = {}));
+  return (known[to] ??= keepingOutcomes(result, to));
+}
+
+/**
+ * Whole-note conversions by analysis: code actions ask at every move of the cursor, and each
+ * conversion reads the converted note again.
+ */
+const CONVERSIONS = new WeakMap<NoteResult, Partial<Record<GasUnit, TextEdit[]>>>();
+
+/** `convertNoteUnits` without the memo. */
+function keepingOutcomes(result: NoteResult, to: GasUnit): TextEdit[] {
+  let edits = conversionEdits(result, to, NO_EXTRA);
+  if (edits.length === 0 || result.analysis.timeline.timepoints.length > VERIFIED_UP_TO_TIMEPOINTS) return edits;
+  // The note as converted must read as the note does: the same physiology findings and reading
+  // bands at every timepoint. Rounding to a unit's usual decimals can move a value across a
+  // threshold (PaO2 101 mmHg, 1 mmHg inside the alveolar limit of PN401, is 13.5 kPa = 101.26
+  // mmHg, outside it), and a value written in kPa is compared at the resolution it was written
+  // with (PN402 takes 5.3 kPa for 5.25–5.35 kPa). Where a timepoint reads otherwise, its converted
+  // pressures get one more decimal, then two; each try is one analysis of the converted note.
+  const lines = result.analysis.tree.lines;
+  const text = lines.map((l) => l.text).join(result.analysis.tree.eol);
+  const before = outcomes(result);
+  const chosen = new Map<number, Choice>();
+  const timepoints = result.analysis.timeline.timepoints;
+  // A bare value in doubt (PN204) is read in the new unit, where it is ordinary, by design: its
+  // timepoint then reads a value it could not before, and is not held to what it read.
+  const inDoubt = timepoints.map((tp) => tp.stated.some((s) => s.unitDoubt !== null));
+  for (const choice of [...RETRIES, KEEP]) {
+    const after = outcomes(checkNote(applyEdits(text, edits), result.settings));
+    let differs = false;
+    for (let i = 0; i < timepoints.length; i++) {
+      if (before[i] === after[i] || inDoubt[i]) continue;
+      differs = true;
+      const tp = timepoints[i]!;
+      for (let line = tp.startLine; line <= tp.endLine; line++) chosen.set(line, choice);
+    }
+    if (!differs) return edits;
+    edits = conversionEdits(result, to, (s) => chosen.get(s.line) ?? NEAREST);
+  }
+  // A timepoint still read otherwise after every try keeps its pressures as written, with their
+  // unit (a kPa value on two thresholds at once, 6.7 kPa at the hypercapnia threshold of 50 mmHg and
+  // within the HCO3 tolerance only at its upper end, 50.6 mmHg, is no one number in mmHg).
+  return edits;
+}
+
+/**
+ * The most timepoints of a note whose conversion is read again to keep its findings: reading a
+ * converted note of thousands of timepoints takes seconds, too long for an action offered at
+ * every move of the cursor, so a longer note is converted with the usual decimals only.
+ */
+const VERIFIED_UP_TO_TIMEPOINTS = 400;
+
+/** How the pressures of one timepoint are written: decimals more than usual, and which number. */
+interface Choice {
+  readonly extra: number;
+  readonly lean: Lean;
+  /** Lean only the CO2 pressures (PaCO2, PvCO2: PN402 reads them at their written resolution), the others nearest. */
+  readonly co2Only: boolean;
+  /** Not converted: the number kept as written, with the unit it was read in written out. */
+  readonly keep: boolean;
+}
+
+const NEAREST: Choice = { extra: 0, lean: 'nearest', co2Only: false, keep: false };
+const KEEP: Choice = { extra: 0, lean: 'nearest', co2Only: false, keep: true };
+
+/** How one stated value is written under a timepoint's choice. */
+function leanOf(choice: Choice, s: StatedValue): Lean {
+  return choice.co2Only && !s.fieldId.endsWith('co2') ? 'nearest' : choice.lean;
+}
+/**
+ * The tries for a timepoint that reads otherwise, in order: one more decimal, two more (a value
+ * rounded across a threshold), then the lowest and the highest number with two more decimals that
+ * the written one stands for (a kPa value read at the resolution written, which a number in mmHg
+ * is not: 5.2 kPa, 5.15–5.25 kPa, is 38.64–39.37 mmHg).
+ */
+const RETRIES: readonly Choice[] = [
+  { extra: 1, lean: 'nearest', co2Only: false, keep: false },
+  { extra: 2, lean: 'nearest', co2Only: false, keep: false },
+  { extra: 2, lean: 'low', co2Only: true, keep: false },
+  { extra: 2, lean: 'high', co2Only: true, keep: false },
+  { extra: 2, lean: 'low', co2Only: false, keep: false },
+  { extra: 2, lean: 'high', co2Only: false, keep: false },
+];
+
+const NO_EXTRA = (): Choice => NEAREST;
+
+/**
+ * What a conversion must keep, per timepoint: its physiology findings (PN4xx), each with its
+ * message without numbers and units (`PaO2 10.3 kPa (77 mmHg): consistent with …` and `PaO2 77
+ * mmHg: consistent with …` read alike), so that a notable reading keeps its band too. Findings
+ * the checks already made: no timepoint is derived again for this. Findings of units and
+ * plausibility may change by design (a bare value in doubt is read in the new unit).
+ */
+function outcomes(result: NoteResult): string[] {
+  const timepoints = result.analysis.timeline.timepoints;
+  const out = new Array<string>(timepoints.length).fill('');
+  if (timepoints.length === 0) return out;
+  const lineCount = result.analysis.tree.lines.length;
+  const timepointAt = new Int32Array(lineCount).fill(-1);
+  for (const tp of timepoints) for (let line = Math.max(0, tp.startLine); line <= tp.endLine && line < lineCount; line++) timepointAt[line] = tp.index;
+  const parts: string[][] = timepoints.map(() => []);
+  for (const f of result.findings) {
+    if (!f.code.startsWith('PN4')) continue;
+    const at = timepointAt[f.range.start.line] ?? -1;
+    if (at >= 0) parts[at]?.push(`${f.code} ${withoutNumbers(f.message)}`);
+  }
+  for (let i = 0; i < parts.length; i++) out[i] = parts[i]!.sort().join(' | ');
+  return out;
+}
+
+/**
+ * A message's words without its numbers, units, bracketed figures and blanks: what a band is
+ * named by (no regular expression here may backtrack: tests/hostile checks them all).
+ */
+function withoutNumbers(text: string): string {
+  // Bracketed text left out, by depth (a regular expression would scan again from every bracket).
+  let out = '';
+  let depth = 0;
+  for (let i = 0; i < text.length; i++) {
+    const c = text.charCodeAt(i);
+    if (c === 0x28) depth++;
+    else if (c === 0x29) depth = depth > 0 ? depth - 1 : 0;
+    else if (depth === 0) out += text.charAt(i);
+  }
+  return out.replace(/\d+(?:\.\d+)?/g, '#').replace(/\b(?:kPa|mmHg)\b/g, '').replace(/\s+/g, '');
+}
+
+/** `convertNoteUnits` with each converted value written as `extraOf(value)` chooses. */
+function conversionEdits(result: NoteResult, to: GasUnit, extraOf: (s: StatedValue) => Choice): TextEdit[] {
   const edits: TextEdit[] = [];
   const tree = result.analysis.tree;
   const unitItems = gasUnitItems(result);
@@ -248,10 +428,10 @@ export function convertNoteUnits(result: NoteResult, to: GasUnit): TextEdit[] {
       doneShorthand.add(s.line);
       const node = tree.lines[s.line];
       const sh = node ? shorthandPressures(result, node) : null;
-      if (sh) edits.push(...shorthandEdits(sh, to, bareReadsAs(s.line)));
+      if (sh) edits.push(...shorthandEdits(sh, to, bareReadsAs(s.line), extraOf));
       continue;
     }
-    edits.push(...valueEdits(s, field, to, bareReadsAs(s.line)));
+    edits.push(...valueEdits(s, field, to, bareReadsAs(s.line), extraOf(s)));
   }
   return edits;
 }
@@ -270,15 +450,15 @@ function keepAsRead(line: number, at: number, hasUnit: boolean, readUnit: string
   return hasUnit || bareAfter === readUnit ? [] : [{ range: lineRange(line, at, at), newText: ` ${displayUnit(readUnit)}` }];
 }
 
-function valueEdits(s: StatedValue, field: FieldDef, to: GasUnit, bareAfter: GasUnit | null): TextEdit[] {
+function valueEdits(s: StatedValue, field: FieldDef, to: GasUnit, bareAfter: GasUnit | null, choice: Choice): TextEdit[] {
   const item = s.item;
   const value = item.value!;
   const line = s.line;
   if (s.unitDoubt && !item.unit) return [];
-  if (!ordinary(s, field)) return keepAsRead(line, value.span.end, item.unit !== null, s.readUnit!, bareAfter);
+  if (!ordinary(s, field) || choice.keep) return keepAsRead(line, value.span.end, item.unit !== null, s.readUnit!, bareAfter);
   const edits: TextEdit[] = [];
   if (s.readUnit !== to) {
-    const number = numberIn(s, field, to);
+    const number = numberIn(s, field, to, choice.extra, leanOf(choice, s));
     if (number === null) return [];
     edits.push({ range: lineRange(line, value.span.start, value.span.end), newText: number });
   }
@@ -300,7 +480,7 @@ new unit is written after it (`7.35/5.3/9.1/24 kPa`). Left as it is when convert
  * pressure is unusual too, the numbers are kept as read with their unit written, as for any
  * shorthand with an unusual pressure.
  */
-function shorthandWithDoubt(sh: ShorthandPressures, to: GasUnit, bareAfter: GasUnit | null, readUnit: string): TextEdit[] {
+function shorthandWithDoubt(sh: ShorthandPressures, to: GasUnit, bareAfter: GasUnit | null, readUnit: string, extraOf: (s: StatedValue) => Choice): TextEdit[] {
   if (sh.parts.every((p) => p.unitDoubt)) return [];
   // Another pressure unusual too: the numbers are kept as read, with the unit they were read in written.
   if (sh.parts.some((p) => !p.unitDoubt && !ordinary(p, p.field))) return keepAsRead(sh.node.line, sh.end, false, readUnit, bareAfter);
@@ -308,7 +488,7 @@ function shorthandWithDoubt(sh: ShorthandPressures, to: GasUnit, bareAfter: GasU
   const edits: TextEdit[] = [];
   for (const s of sh.parts) {
     if (s.unitDoubt) continue;
-    const number = numberIn(s, s.field, to);
+    const number = numberIn(s, s.field, to, extraOf(s).extra, leanOf(extraOf(s), s));
     if (number === null || !s.item.value) return [];
     edits.push({ range: lineRange(sh.node.line, s.item.value.span.start, s.item.value.span.end), newText: number });
   }
@@ -318,16 +498,16 @@ function shorthandWithDoubt(sh: ShorthandPressures, to: GasUnit, bareAfter: GasU
   return edits;
 }
 
-function shorthandEdits(sh: ShorthandPressures, to: GasUnit, bareAfter: GasUnit | null): TextEdit[] {
+function shorthandEdits(sh: ShorthandPressures, to: GasUnit, bareAfter: GasUnit | null, extraOf: (s: StatedValue) => Choice): TextEdit[] {
   const line = sh.node.line;
   const readUnit = sh.parts[0]?.readUnit ?? null;
   if (!readUnit || sh.parts.some((p) => p.readUnit !== readUnit || p.value === null)) return [];
-  if (!sh.unit && sh.parts.some((p) => p.unitDoubt)) return shorthandWithDoubt(sh, to, bareAfter, readUnit);
-  if (sh.parts.some((p) => !ordinary(p, p.field))) return keepAsRead(line, sh.end, sh.unit !== null, readUnit, bareAfter);
+  if (!sh.unit && sh.parts.some((p) => p.unitDoubt)) return shorthandWithDoubt(sh, to, bareAfter, readUnit, extraOf);
+  if (sh.parts.some((p) => !ordinary(p, p.field) || extraOf(p).keep)) return keepAsRead(line, sh.end, sh.unit !== null, readUnit, bareAfter);
   const edits: TextEdit[] = [];
   if (readUnit !== to) {
     for (const s of sh.parts) {
-      const number = numberIn(s, s.field, to);
+      const number = numberIn(s, s.field, to, extraOf(s).extra, leanOf(extraOf(s), s));
       if (number === null || !s.item.value) return [];
       edits.push({ range: lineRange(line, s.item.value.span.start, s.item.value.span.end), newText: number });
     }

@@ -5,9 +5,20 @@ export function formatNumber(value: number, decimals: number): string {
   // A whole number (most values a note states: hr 84, peep 10) is written without toFixed, which
   // is the dearest step of formatting; the text is the same (String(-0) is '0', as wanted).
   if (Number.isInteger(value) && value < 1e21 && value > -1e21 && Number.isInteger(d)) return d === 0 ? String(value) : String(value) + ZEROS[d]!;
-  // With no decimals, a positive number is rounded as toFixed rounds it (to the nearest whole
-  // number, halves up) at a fraction of the cost: a P/F or a gradient shown whole.
-  if (d === 0 && value > 0 && value < 1e21) return String(Math.round(value));
+  const places = Number.isInteger(d) ? d : Math.trunc(d);
+  const size = value < 0 ? -value : value;
+  const units = size * SCALE[places]!;
+  if (units < 1e6) {
+    // Rounded as on paper: a number that is a half of its last decimal but for binary noise
+    // (0.686 × 25 = 17.15, computed 17.149999999999995) is that half, and a half goes away from
+    // zero (17.2), where toFixed rounds the binary number (17.1). Taken first to 9 decimals past
+    // the last one shown, as bands take values (`forBand`).
+    const whole = Math.round(Math.round(units * 1e9) / 1e9);
+    // A number that rounds to zero prints as 0, never -0.
+    if (whole === 0) return places === 0 ? '0' : `0${ZEROS[places]!}`;
+    const text = places === 0 ? String(whole) : (whole / SCALE[places]!).toFixed(places);
+    return value < 0 ? `-${text}` : text;
+  }
   const fixed = value.toFixed(d);
   // A negative number that rounds to zero prints as 0, not -0.
   return fixed.charCodeAt(0) === 45 && Number(fixed) === 0 ? fixed.slice(1) : fixed;
@@ -15,26 +26,30 @@ export function formatNumber(value: number, decimals: number): string {
 
 /** The decimals a whole number is written with, by count (0 to 6). */
 const ZEROS: readonly string[] = ['', '.0', '.00', '.000', '.0000', '.00000', '.000000'];
+/** 10 to the power of each count of decimals (0 to 6). */
+const SCALE: readonly number[] = [1, 10, 100, 1000, 1e4, 1e5, 1e6];
 
 /** A number with as few decimals as it needs, up to `max` (29.5, 30, 0.21). */
 export function formatShort(value: number, max = 2): string {
   if (!Number.isFinite(value)) return '—';
-  return String(Number(value.toFixed(max)));
+  return String(Number(formatNumber(value, max)));
 }
 
 /**
  * Decimals at which `value` shows on the same side of every threshold given as it is: from
- * `decimals` up to 2 more. A PaO2 of 59.6 against 60 shows as 59.6, not as 60 next to "below 60".
- * Up to four thresholds, passed one by one (no list per call: readings run at every gas).
+ * `decimals` up to as many as it takes (6 at most). A PaO2 of 59.6 against 60 shows as 59.6, not
+ * as 60 next to "below 60"; a range end of 26.995 against 27 as 26.995, where 27.00 would put it
+ * on 27. Up to four thresholds, passed one by one (no list per call: readings run at every gas).
  */
 export function decimalsAgainst(value: number, decimals: number, t1: number, t2 = NaN, t3 = NaN, t4 = NaN): number {
   if (!Number.isFinite(value)) return decimals;
   // Compared as written on paper: a quotient that is on a threshold stays on it (see forBand).
   const exact = Math.round(value * 1e9) / 1e9;
-  for (let d = decimals; d < decimals + 2; d++) {
+  const most = Math.max(decimals, 6);
+  for (let d = decimals; d < most; d++) {
     if (keepsSide(value, exact, d, t1) && keepsSide(value, exact, d, t2) && keepsSide(value, exact, d, t3) && keepsSide(value, exact, d, t4)) return d;
   }
-  return decimals + 2;
+  return most;
 }
 
 /** Whether `value` shown with `d` decimals is on the same side of `t` as it is (NaN: no threshold). */
@@ -42,7 +57,7 @@ function keepsSide(value: number, exact: number, d: number, t: number): boolean 
   if (Number.isNaN(t)) return true;
   // Rounding moves a number by half a unit of its last decimal at most: far enough away, no text is needed.
   if (Math.abs(exact - t) > 0.6 * 10 ** -d) return true;
-  const shown = Number(value.toFixed(d < 0 ? 0 : d > 6 ? 6 : d));
+  const shown = Number(formatNumber(value, d));
   return Math.sign(shown - t) === Math.sign(exact - t);
 }
 
