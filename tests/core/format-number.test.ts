@@ -4,6 +4,7 @@
 // away from zero, where toFixed rounds the binary number (17.1).
 import { describe, expect, it } from 'vitest';
 import { formatNumber, halfLastDigit, writtenDecimals } from '../../server/src/core/util/format';
+import { unsignedOnPaper } from '../helpers/on-paper';
 import { rng } from '../helpers/seeded';
 
 /**
@@ -19,17 +20,7 @@ function byToFixed(value: number, decimals: number): string {
   if (Math.abs(value) * 10 ** d >= 1e6 || Number.isInteger(value)) fixed = value.toFixed(decimals < 0 ? 0 : decimals > 6 ? 6 : decimals);
   else {
     const negative = value < 0;
-    const long = Math.abs(value).toFixed(d + 9);
-    const point = long.indexOf('.');
-    const digits = (long.slice(0, point) + long.slice(point + 1, point + 1 + d)).split('').map(Number);
-    if (Number(long.charAt(point + 1 + d)) >= 5) {
-      let k = digits.length - 1;
-      while (k >= 0 && digits[k] === 9) digits[k--] = 0;
-      if (k < 0) digits.unshift(1);
-      else digits[k]! += 1;
-    }
-    const whole = digits.slice(0, digits.length - d).join('').replace(/^0+(?=\d)/, '');
-    const text = d === 0 ? whole : `${whole}.${digits.slice(digits.length - d).join('')}`;
+    const text = unsignedOnPaper(value, d);
     fixed = negative ? `-${text}` : text;
   }
   return fixed.startsWith('-') && Number(fixed) === 0 ? fixed.slice(1) : fixed;

@@ -9,6 +9,7 @@ import { checkNote } from '../../server/src/core/check-note';
 import { substitutedText } from '../../server/src/core/service/derived-hover';
 import { samples } from '../export/helpers';
 import { derived } from './helpers';
+import { unsignedOnPaper } from '../helpers/on-paper';
 
 /**
  * The left side of `a op b = result unit` evaluated as JavaScript (× ÷ − ^ as * / - **), and the
@@ -50,17 +51,7 @@ const SET_NOT_COMPUTED = /within rounding of the alveolar PO2: (gradient|ratio) 
  * binary for 19.95, is 19.95), then halves away from zero. Decimal text, not arithmetic.
  */
 function onPaper(value: number, d: number): string {
-  const long = Math.abs(value).toFixed(d + 9);
-  const point = long.indexOf('.');
-  const digits = (long.slice(0, point) + long.slice(point + 1, point + 1 + d)).split('').map(Number);
-  if (Number(long.charAt(point + 1 + d)) >= 5) {
-    let k = digits.length - 1;
-    while (k >= 0 && digits[k] === 9) digits[k--] = 0;
-    if (k < 0) digits.unshift(1);
-    else digits[k]! += 1;
-  }
-  const whole = digits.slice(0, digits.length - d).join('').replace(/^0+(?=\d)/, '');
-  const text = d === 0 ? whole : `${whole}.${digits.slice(digits.length - d).join('')}`;
+  const text = unsignedOnPaper(value, d);
   return value < 0 && /[1-9]/.test(text) ? `-${text}` : text;
 }
 

@@ -332,12 +332,13 @@ class Relocator {
 }
 
 /**
- * A stated value on another line than the one it was read on (its line moved with lines added or
- * removed before it): the value as read, with its new line. A value moved again refers to the
- * value as read, never to another move, so no chain builds up.
+ * A stated value seen through another: every property is the value's as read, but those a
+ * subclass gives (its line, or whether it is in force only where it is stated).
  */
-class MovedValue implements StatedValue {
-  constructor(readonly read: StatedValue, readonly line: number) {}
+abstract class ValueAsRead implements StatedValue {
+  constructor(readonly read: StatedValue) {}
+  abstract readonly line: number;
+  abstract readonly hereOnly: boolean;
   get field(): FieldDef { return this.read.field; }
   get fieldId(): string { return this.read.fieldId; }
   get section(): SectionId { return this.read.section; }
@@ -350,6 +351,15 @@ class MovedValue implements StatedValue {
   get unitImplied(): boolean { return this.read.unitImplied; }
   get unitDoubt(): string | null { return this.read.unitDoubt; }
   get usable(): boolean { return this.read.usable; }
+}
+
+/**
+ * A stated value on another line than the one it was read on (its line moved with lines added or
+ * removed before it): the value as read, with its new line. A value moved again refers to the
+ * value as read, never to another move, so no chain builds up.
+ */
+class MovedValue extends ValueAsRead {
+  constructor(read: StatedValue, readonly line: number) { super(read); }
   get hereOnly(): boolean { return this.read.hereOnly; }
 }
 
@@ -716,21 +726,9 @@ function givesBreaths(oxygen: HeldMap): boolean {
  * and never carried; or as a setting though its field is a reading (the mean airway pressure set
  * on an oscillator, see `asSettings`), held and carried.
  */
-class ReadAs implements StatedValue {
-  constructor(readonly read: StatedValue, readonly hereOnly: boolean) {}
-  get field(): FieldDef { return this.read.field; }
-  get fieldId(): string { return this.read.fieldId; }
-  get section(): SectionId { return this.read.section; }
+class ReadAs extends ValueAsRead {
+  constructor(read: StatedValue, readonly hereOnly: boolean) { super(read); }
   get line(): number { return this.read.line; }
-  get item(): ItemNode { return this.read.item; }
-  get value(): number | null { return this.read.value; }
-  get parts(): readonly number[] | null { return this.read.parts; }
-  get word(): string | null { return this.read.word; }
-  get unit(): string | null { return this.read.unit; }
-  get readUnit(): string | null { return this.read.readUnit; }
-  get unitImplied(): boolean { return this.read.unitImplied; }
-  get unitDoubt(): string | null { return this.read.unitDoubt; }
-  get usable(): boolean { return this.read.usable; }
 }
 
 /** The settings a change of mode keeps: PEEP and FiO2 (our convention, common practice, no source). */
