@@ -364,6 +364,22 @@ function spacedPairRule(pairKeys, units, keys) {
   return { comment: 'A pair written with blanks around its slash (bp 120 / 80).', match: rule.regex, captures: rule.captures };
 }
 
+/**
+ * A blood pressure with its measured mean in brackets (`bp 120/80 (93)`, `bp 120 / 80 mmHg (93)`):
+ * the parser reads the number in brackets as the mean arterial pressure.
+ */
+function bracketedMeanRule(pairKeys, units, keys) {
+  const rule = assemble(
+    START, cap('variable.other.key', pairKeys), END,
+    '\\s+(?:',
+    cap(pair('meta.pair'), PAIR), groupTail(units, keys),
+    '|', cap(pair('meta.pair'), PAIR_SPACED), groupTail(units, keys),
+    ')',
+    '\\s+', cap('punctuation.definition.mean.begin', '\\('), cap(numeric, NUM), cap('punctuation.definition.mean.end', '\\)'), VALUE_END,
+  );
+  return { comment: 'A blood pressure with its measured mean in brackets (bp 120/80 (93)).', match: rule.regex, captures: rule.captures };
+}
+
 /** A key that takes a word (`sex female`, `mode VC`, `gas kPa`, `device cannula`). */
 function wordItemRule(field, sectionKeys) {
   const known = Object.keys(field.words ?? {});
@@ -392,7 +408,7 @@ function itemPatterns({ FIELDS }, sectionId, units) {
     { include: '#full-stop' },
     ...strayRules(gas, units),
     ...wordFields.map((f) => wordItemRule(f, keys)),
-    ...(pairKeys.length > 0 ? [spacedPairRule(alt(pairKeys), units, keys)] : []),
+    ...(pairKeys.length > 0 ? [bracketedMeanRule(alt(pairKeys), units, keys), spacedPairRule(alt(pairKeys), units, keys)] : []),
     keyValueRule(units, keys),
   ];
 }

@@ -215,6 +215,10 @@ export const mechanicalPower = defineDerived({
     // The equation is one of constant-flow volume control (a mode in force that is not VC: not worked out).
     const mode = c.word('mode');
     if (mode && mode.word !== MECHANICAL_POWER_MODE) return { kind: 'na', reason: notVolumeControl(mode.word), explained: true };
+    // Under NIV or CPAP of an oxygen line no ventilator mode is in force, and no `peep` either (EPAP
+    // or the CPAP level is the end-expiratory pressure): the breaths are not volume-controlled.
+    const noninvasive = mode ? null : noninvasiveTherapy(c.word('device')?.word ?? null, c.input('epap') !== null, c.input('cpap_level') !== null);
+    if (noninvasive) return { kind: 'na', reason: noninvasive, explained: true };
     if (!rr) {
       const withheld = c.zeroSetRate();
       if (withheld) return withheld;
@@ -231,6 +235,21 @@ export const mechanicalPower = defineDerived({
  */
 function notVolumeControl(mode: string): string {
   return `the simplified equation is for volume control with a constant flow, the airway pressure rising in a straight line through inspiration; in ${mode} the breaths are shaped otherwise, and pressure-controlled or -supported breaths need equations of their own (Becher T et al., Intensive Care Med 2019)`;
+}
+
+const UNDER_NIV = 'the simplified equation is for volume control with a constant flow, the airway pressure rising in a straight line through inspiration; under NIV the breaths are pressure-supported, from EPAP up to IPAP, and pressure-shaped breaths need equations of their own (Becher T et al., Intensive Care Med 2019)';
+const UNDER_CPAP = 'the simplified equation is for volume control with a constant flow, the airway pressure rising in a straight line through inspiration; under CPAP the patient breathes spontaneously at one constant pressure, and the device gives no volume-controlled breath for the equation to describe';
+
+/**
+ * Why the simplified mechanical power is not worked out under the non-invasive therapy of an
+ * oxygen line (the device `niv` or `cpap`, or with none named, an EPAP or a CPAP level in force);
+ * null when none is in force.
+ */
+function noninvasiveTherapy(device: string | null, epap: boolean, cpapLevel: boolean): string | null {
+  if (device === 'niv') return UNDER_NIV;
+  if (device === 'cpap') return UNDER_CPAP;
+  if (device !== null) return null;
+  return epap ? UNDER_NIV : cpapLevel ? UNDER_CPAP : null;
 }
 
 export const mechanicalPowerSurrogateDef = defineDerived({

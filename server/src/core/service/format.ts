@@ -189,6 +189,10 @@ function itemsText(node: SectionLine, unglue: boolean): string | null {
       parts.push(lead);
     } else if (item.implied === 'device-flow') {
       return null; // a flow always follows its device
+    } else if (item.implied === 'bracketed-mean') {
+      // `bp 120/80 (93)`: the mean stays in its brackets after the blood pressure it belongs to.
+      if (!item.value || parts.length === 0) return null;
+      parts[parts.length - 1] += ` (${item.value.text})`;
     } else {
       if (!item.key || !item.value) return null;
       parts.push(`${item.key.text} ${squeezeBlanks(item.value.text)}${unitText(item, unglue)}`);

@@ -84,7 +84,8 @@ function fieldMarkdown(result: NoteResult, node: SectionLine, hit: ItemHit): str
     ? `the ${shorthandPosition(hit.item.keyName)} number of the shorthand gas`
     : hit.item.implied === 'device' ? 'the device, written first'
       : hit.item.implied === 'device-flow' ? 'the number after the device'
-        : `${code(hit.item.key?.text ?? field.aliases[0] ?? field.id)}`;
+        : hit.item.implied === 'bracketed-mean' ? 'the number in brackets after the blood pressure'
+          : `${code(hit.item.key?.text ?? field.aliases[0] ?? field.id)}`;
   const head = `**${escapeMarkdown(field.label)}** — ${keyWords} on this ${code(node.section)} line`;
   const parts: (string | null)[] = [head, describedMarkdown(field.description)];
   if (stated) {

@@ -1079,12 +1079,12 @@ const PAIR_NUMBERS: number[] = [];
 let NUMBER_LENGTH = 0;
 
 /** What implies an item's key (index 0: the key is written), and the flag of a decimal comma, kept in one number. */
-const IMPLIED: readonly ItemNode['implied'][] = [null, 'shorthand', 'device', 'device-flow'];
-const IMPLIED_MASK = 3;
+const IMPLIED: readonly ItemNode['implied'][] = [null, 'shorthand', 'device', 'device-flow', 'bracketed-mean'];
+const IMPLIED_MASK = 7;
 const SHORTHAND = 1;
-const DECIMAL_COMMA = 4;
+const DECIMAL_COMMA = 8;
 /** An item's flags take values below this; where its number ends is kept above them (see `Item.packed`). */
-const FLAG_VALUES = 8;
+const FLAG_VALUES = 16;
 
 /**
  * An item: `key value [unit]`, or a value whose key is implied by its place (a shorthand gas part,
@@ -1228,6 +1228,22 @@ class Item implements ItemNode, Span {
   get span(): Span {
     return this;
   }
+}
+
+/**
+ * The mean arterial pressure written in brackets after a blood pressure (`bp 120/80 (93)`): an
+ * item of the field `mean_bp` with its key implied by its place, spanning the number inside the
+ * brackets; null when `chunk` is not one number in brackets, or follows a comma.
+ */
+function bracketedMeanAt(chunk: Word | undefined, source: string, section: SectionId): Item | null {
+  if (chunk === undefined || chunk.afterComma) return null;
+  const start = chunk.start + 1;
+  const end = chunk.end - 1;
+  if (end <= start || source.charCodeAt(chunk.start) !== 0x28 /* ( */ || source.charCodeAt(end) !== 0x29 /* ) */) return null;
+  if (scanNumber(source, start) !== end - start) return null;
+  const field = fieldFor(section, 'map') ?? null;
+  if (field === null) return null;
+  return numberItem(null, 'map', 'bracketed-mean', field, source, SCANNED.value, end, SCANNED.decimalComma, null, start);
 }
 
 /** An item whose value is a pair, a word or nothing. */
@@ -1458,6 +1474,16 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
           } else if (field?.kind === 'pair' && group.count !== 2) {
             // `bp 120/80/60`: a pair is two numbers; a third would otherwise be dropped in silence.
             issues.push({ check: 'missing-value', span: { start: key.start, end: group.end }, message: `\`${key.text}\` takes two numbers joined by a slash (\`${key.text} 120/80\`); \`${group.text}\` is ${countWord(group.count)}, so it is not read.`, fixes: [] });
+          }
+          if (field?.id === 'bp' && group.count === 2) {
+            // `bp 120/80 (93)`: the measured mean in brackets after the blood pressure, read as `map 93`.
+            const mean = bracketedMeanAt(chunks[i], source, section);
+            if (mean !== null) {
+              items[count++] = otherItem(key.text, keyName, null, field, value, unit, key.start);
+              items[count++] = mean;
+              i++;
+              continue;
+            }
           }
         } else if (length > 0) {
           const number = SCANNED.value;

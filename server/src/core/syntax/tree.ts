@@ -44,13 +44,14 @@ export type ValueNode = NumberValue | PairValue | WordValue;
 
 /**
  * One `key value [unit]` item. `key` is null when the key is implied by position
- * (a shorthand gas part, a device's flow, the device word itself).
+ * (a shorthand gas part, a device's flow, the device word itself, the mean in brackets after a
+ * blood pressure: `bp 120/80 (93)`).
  */
 export interface ItemNode {
   readonly key: Token | null;
   /** The key the item stands for, lower case (implied keys use the canonical key). */
   readonly keyName: string;
-  readonly implied: 'shorthand' | 'device' | 'device-flow' | null;
+  readonly implied: 'shorthand' | 'device' | 'device-flow' | 'bracketed-mean' | null;
   /** The field the key names in the line's section; null for a key the section does not have. */
   readonly field: FieldDef | null;
   readonly value: ValueNode | null;
