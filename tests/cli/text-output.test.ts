@@ -282,6 +282,33 @@ describe('show, in a kPa note', () => {
   });
 });
 
+describe('show, a kPa row beside its readings', () => {
+  // 1 kPa = 7.50062 mmHg (definition of the units). The thresholds are Pneumark's defaults:
+  // hypoxaemia below 60 mmHg (8.0 kPa), hypercapnia above 50 mmHg (6.67 kPa), common practice, no source.
+  it('gives the mmHg of a kPa value on the side of the threshold its reading names', async () => {
+    // 7.99 kPa is 59.93 mmHg: below 60, so never "(60 mmHg)" beside "below 8.0 kPa".
+    // 6.68 kPa is 50.10 mmHg: above 50, so never "(50 mmHg)" beside "above 6.67 kPa".
+    const out = io('units gas kPa\n@ day 1 08:00\noxygen venturi, fio2 28 %\nabg ph 7.28, pco2 6.68, po2 7.99, hco3 23\n');
+    await run(['show', '-'], out);
+    const text = out.out();
+    expect(text).toContain('PaO2 7.99 kPa (59.9 mmHg): consistent with moderate hypoxaemia (below 8.0 kPa)');
+    expect(text).toContain('PaCO2 6.68 kPa (50.1 mmHg): consistent with hypercapnia (above 6.67 kPa)');
+    const row = text.split('\n').find((l) => l.trimStart().startsWith('abg')) ?? '';
+    expect(row).toContain('PaO2 7.99 kPa (59.9 mmHg)');
+    expect(row).toContain('PaCO2 6.68 kPa (50.1 mmHg)');
+  });
+
+  it('keeps whole mmHg where no threshold is near, and a value on a threshold at its written decimals as written', async () => {
+    // 9.6 kPa = 72.0 mmHg, 10.8 kPa = 81.0 mmHg: far from every threshold.
+    // 6.7 kPa stands for 6.65–6.75 kPa (49.9–50.6 mmHg), on 50: shown 50 mmHg as the readings show it.
+    const out = io('units gas kPa\n@ day 1 08:00\nabg ph 7.30, pco2 9.6, po2 10.8\n@ day 1 09:00\nabg ph 7.33, pco2 6.7, po2 10.8\n');
+    await run(['show', '-'], out);
+    const rows = out.out().split('\n').filter((l) => l.trimStart().startsWith('abg'));
+    expect(rows[0]).toContain('PaCO2 9.6 kPa (72 mmHg) · PaO2 10.8 kPa (81 mmHg)');
+    expect(rows[1]).toContain('PaCO2 6.7 kPa (50 mmHg)');
+  });
+});
+
 describe('--quiet', () => {
   it('lists error findings only in JSON too, and the summary still counts every finding', async () => {
     const quiet = io();
