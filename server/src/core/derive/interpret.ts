@@ -363,7 +363,7 @@ function readRespiratoryFailure(g: GasFacts, out: Interpretation[]): void {
 // only where the reading checks above chose it (so `pao2`, `paco2`, `fio2`… are there when used).
 
 function oxygenationNotReadText(g: GasFacts): string {
-  return `PaO2 ${g.gas.value(g.pao2!.value)}: oxygenation not read, as ${NOT_READ}.`;
+  return `PaO2 ${g.gas.measured(g.pao2!.value, g.o2Resolution)}: oxygenation not read, as ${NOT_READ}.`;
 }
 
 /** The PaO2 with the decimals that keep it on its side of the thresholds named. */
@@ -532,7 +532,7 @@ function mechanism(g: GasFacts): Interpretation {
   const limit = upper?.value ?? AA_UPPER_NORMAL_NO_AGE_MMHG;
   const causes: string[] = [];
   if (pio2.value < LOW_PIO2_MMHG) causes.push(`low inspired oxygen (PiO2 ${gas.value(pio2.value, LOW_PIO2_MMHG)})`);
-  if (hypercapnic) causes.push(`hypoventilation (PaCO2 ${gas.value(paco2.value, settings.hypercapniaAboveMmhg)})`);
+  if (hypercapnic) causes.push(`hypoventilation (PaCO2 ${gas.measured(paco2.value, g.co2Resolution, settings.hypercapniaAboveMmhg)})`);
   const raised = gradient.value > limit;
   const gradientShown = gas.value(gradient.value, limit);
   const limitShown = gas.limit(limit, gradient.value);
@@ -550,7 +550,7 @@ function mechanism(g: GasFacts): Interpretation {
     const alveolar = c.derivedValue('pao2_alveolar');
     const lowering: string[] = [];
     if (sideOf(paco2.value, UPPER_NORMAL_PACO2_MMHG, g.co2Resolution) > 0) {
-      lowering.push(`mild hypoventilation (PaCO2 ${gas.value(paco2.value, UPPER_NORMAL_PACO2_MMHG)}, above ${gas.limit(UPPER_NORMAL_PACO2_MMHG, paco2.value)} but not above ${gas.limit(settings.hypercapniaAboveMmhg, paco2.value)})`);
+      lowering.push(`mild hypoventilation (PaCO2 ${gas.measured(paco2.value, g.co2Resolution, UPPER_NORMAL_PACO2_MMHG, settings.hypercapniaAboveMmhg)}, above ${gas.limit(UPPER_NORMAL_PACO2_MMHG, paco2.value)} but not above ${gas.limit(settings.hypercapniaAboveMmhg, paco2.value)})`);
     }
     if (pio2.value < SEA_LEVEL_AIR_PIO2_MMHG - 0.5) {
       lowering.push(`a PiO2 a little below that of air at sea level (${gas.value(pio2.value, LOW_PIO2_MMHG)}, about ${gas.limit(SEA_LEVEL_AIR_PIO2_MMHG, pio2.value)} there)`);
