@@ -128,6 +128,36 @@ describe('pneumark check', async () => {
     expect(out.out()).toMatch(/<stdin>:2:\d+ {2}error {2}PN306/);
   });
 
+  it('reports an empty note (nothing, or only blank lines) in one line, as a note that holds nothing to check, and exits 2', async () => {
+    // As an empty folder or a pattern that matches nothing: a run fed nothing must not pass as clean.
+    const empty = io('');
+    expect(await run(['check', '-'], empty)).toBe(2);
+    expect(empty.err()).toBe('pneumark: <stdin>: holds no note (it is empty or has only blank lines)\n');
+    expect(empty.out()).toMatch(/0 notes checked, 1 could not be checked/);
+    const dir = tempDir();
+    writeFileSync(join(dir, 'empty.pneu'), '');
+    writeFileSync(join(dir, 'blank.pneu'), '\ufeff \n\t\r\n\n');
+    writeFileSync(join(dir, 'ok.pneu'), 'vitals hr 80\n');
+    const files = memoryIo({ cwd: dir, env: { NO_COLOR: '1' } });
+    expect(await run(['check', '.'], files)).toBe(2);
+    expect(files.err().split('\n').filter(Boolean).sort()).toEqual([
+      'pneumark: blank.pneu: holds no note (it is empty or has only blank lines)',
+      'pneumark: empty.pneu: holds no note (it is empty or has only blank lines)',
+    ]);
+    expect(files.out()).toMatch(/1 note checked, 2 could not be checked/);
+    // In JSON, the note is listed with its problem, and counted as not read.
+    const json = io('\n');
+    expect(await run(['check', '-', '--format', 'json'], json)).toBe(2);
+    const parsed = jsonShape.parse(JSON.parse(json.out()));
+    expect(parsed.files.map((f) => [f.path, f.problem])).toEqual([['<stdin>', 'holds no note (it is empty or has only blank lines)']]);
+  });
+
+  it('takes a note of comments only as a note (someone wrote it), not as empty', async () => {
+    const out = io('# to be filled in\n');
+    expect(await run(['check', '-'], out)).toBe(0);
+    expect(out.err()).toBe('');
+  });
+
   it('shows only errors with --quiet', async () => {
     const out = io();
     await run(['check', '--quiet', 'samples/broken-note.pneu'], out);
@@ -247,5 +277,13 @@ describe('the built command', async () => {
     writeFileSync(join(dir, 'nested', 'a.pneu'), 'vitals hr 80\n');
     const folder = spawnSync(process.execPath, [join(process.cwd(), 'dist/cli.js'), 'check', '.'], { cwd: dir, encoding: 'utf8' });
     expect(folder.stdout).toMatch(/1 note checked/);
+  });
+
+  it('reports standard input with nothing piped in, in show and export as in check', () => {
+    for (const args of [['check', '-'], ['show', '-'], ['export', '-', '--format', 'csv']]) {
+      const r = spawnSync(process.execPath, ['dist/cli.js', ...args], { input: '', encoding: 'utf8', env: { ...process.env, NO_COLOR: '1' } });
+      expect(r.status, args.join(' ')).toBe(2);
+      expect(r.stderr, args.join(' ')).toBe('pneumark: <stdin>: holds no note (it is empty or has only blank lines)\n');
+    }
   });
 });

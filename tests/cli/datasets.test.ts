@@ -110,7 +110,7 @@ describe('limits and levels', () => {
     const out = io(process.cwd());
     await run(['--help'], out);
     const text = out.out().replace(/\s+/g, ' ');
-    expect(text).toContain('2 a usage error, inputs that hold no note (an empty folder, a pattern that matches nothing), a note that could not be read, or analysed in the memory one note is given, or that fmt --write would not rewrite, a folder below those named that cannot be listed');
+    expect(text).toContain('2 a usage error, inputs that hold no note (an empty folder, a pattern that matches nothing; in check, show and export, a note that is empty or has only blank lines, as standard input with nothing piped in is), a note that could not be read, or analysed in the memory one note is given, or that fmt --write would not rewrite, a folder below those named that cannot be listed');
   });
 });
 

@@ -282,6 +282,64 @@ describe('show, in a kPa note', () => {
   });
 });
 
+describe('show, a kPa row beside its readings', () => {
+  // 1 kPa = 7.50062 mmHg (definition of the units). The thresholds are Pneumark's defaults:
+  // hypoxaemia below 60 mmHg (8.0 kPa), hypercapnia above 50 mmHg (6.67 kPa), common practice, no source.
+  it('gives the mmHg of a kPa value on the side of the threshold its reading names', async () => {
+    // 7.99 kPa is 59.93 mmHg: below 60, so never "(60 mmHg)" beside "below 8.0 kPa".
+    // 6.68 kPa is 50.10 mmHg: above 50, so never "(50 mmHg)" beside "above 6.67 kPa".
+    const out = io('units gas kPa\n@ day 1 08:00\noxygen venturi, fio2 28 %\nabg ph 7.28, pco2 6.68, po2 7.99, hco3 23\n');
+    await run(['show', '-'], out);
+    const text = out.out();
+    expect(text).toContain('PaO2 7.99 kPa (59.9 mmHg): consistent with moderate hypoxaemia (below 8.0 kPa)');
+    expect(text).toContain('PaCO2 6.68 kPa (50.1 mmHg): consistent with hypercapnia (above 6.67 kPa)');
+    const row = text.split('\n').find((l) => l.trimStart().startsWith('abg')) ?? '';
+    expect(row).toContain('PaO2 7.99 kPa (59.9 mmHg)');
+    expect(row).toContain('PaCO2 6.68 kPa (50.1 mmHg)');
+  });
+
+  it('keeps whole mmHg where no threshold is near, and a value on a threshold at its written decimals as written', async () => {
+    // 9.6 kPa = 72.0 mmHg, 10.8 kPa = 81.0 mmHg: far from every threshold.
+    // 6.7 kPa stands for 6.65–6.75 kPa (49.9–50.6 mmHg), on 50: shown 50 mmHg as the readings show it.
+    const out = io('units gas kPa\n@ day 1 08:00\nabg ph 7.30, pco2 9.6, po2 10.8\n@ day 1 09:00\nabg ph 7.33, pco2 6.7, po2 10.8\n');
+    await run(['show', '-'], out);
+    const rows = out.out().split('\n').filter((l) => l.trimStart().startsWith('abg'));
+    expect(rows[0]).toContain('PaCO2 9.6 kPa (72 mmHg) · PaO2 10.8 kPa (81 mmHg)');
+    expect(rows[1]).toContain('PaCO2 6.7 kPa (50 mmHg)');
+  });
+});
+
+describe('readings quote a kPa value with its written decimals', () => {
+  it('names the PaCO2 of the hypoventilation cause as the note wrote it', async () => {
+    // Hypoventilation among the causes of hypoxaemia: PaCO2 6.68 kPa (50.1 mmHg) is above 50 mmHg.
+    const out = io('patient age 60 y\nunits gas kPa\n@ day 1 08:00\noxygen venturi, fio2 28 %\nabg ph 7.28, pco2 6.68, po2 7.99, hco3 23\n');
+    await run(['show', '-'], out);
+    const text = out.out();
+    expect(text).toContain('hypoventilation (PaCO2 6.68 kPa (50.1 mmHg))');
+    expect(text).not.toContain('PaCO2 6.7 kPa');
+  });
+
+  it('names the PaO2 of an oxygenation not read as the note wrote it', async () => {
+    // 16.45 kPa (123 mmHg) on air at sea level is above the alveolar PO2 of about 100 mmHg (alveolar gas equation).
+    const out = io('units gas kPa\n@ day 1 08:00\noxygen air\nabg ph 7.40, pco2 5.33, po2 16.45, hco3 24\n');
+    await run(['show', '-'], out);
+    const text = out.out();
+    expect(text).toContain('PaO2 16.45 kPa (123 mmHg): oxygenation not read');
+    expect(text).toContain('PN401 PaO2 16.45 kPa (123 mmHg) is above the alveolar PO2');
+  });
+
+  it('names the PaCO2 of mild hypoventilation as the note wrote it', async () => {
+    // 6.55 kPa = 49.1 mmHg: above the upper normal 45 mmHg, not above the 50 mmHg hypercapnia threshold.
+    // At PB 715 mmHg on air the alveolar PO2 is low with a gradient normal for 80 years (alveolar gas
+    // equation; age/4 + 4 mmHg, common practice, no source), so the PaCO2 is named as a cause.
+    const out = io('patient age 80 y\nunits gas kPa\nplace pb 715 mmHg\n@ day 1 08:00\noxygen air\nabg ph 7.36, pco2 6.55, po2 7.85, hco3 27\n');
+    await run(['show', '-'], out);
+    const text = out.out();
+    expect(text).toContain('from mild hypoventilation (PaCO2 6.55 kPa (49 mmHg), above 6.0 kPa');
+    expect(text).not.toContain('PaCO2 6.6 kPa');
+  });
+});
+
 describe('--quiet', () => {
   it('lists error findings only in JSON too, and the summary still counts every finding', async () => {
     const quiet = io();

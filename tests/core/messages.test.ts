@@ -82,6 +82,25 @@ describe('gas pressures in a note read in kPa', () => {
   });
 });
 
+describe('a stated gas pressure is quoted back as it was written', () => {
+  // 1 kPa = 7.50062 mmHg (definition of the units): 21.35 kPa = 160.1 mmHg, 5.33 kPa = 40.0 mmHg.
+  it('in kPa, with its own decimals', () => {
+    const kpa = 'units gas kPa\n@ 08:00\noxygen room air';
+    expect(messages(`${kpa}\nabg ph 7.40, pco2 5.3, po2 21.35`, 'PN401')).toEqual([
+      'PaO2 21.35 kPa (160 mmHg) is above the alveolar PO2 of 13.3 kPa (100 mmHg) that FiO2 0.21 allows here: check the FiO2, the unit, and whether the sample had an air bubble.',
+    ]);
+    expect(messages(`${kpa}\nabg ph 7.40, pco2 5.33, po2 12, hco3 15`, 'PN402')).toEqual([
+      'HCO3 15.0 mmol/L does not fit pH 7.40 and PaCO2 5.33 kPa (40 mmHg), which give 24.5 mmol/L: a transcription error, or values from different samples?',
+    ]);
+  });
+
+  it('in mmHg, with its own decimals', () => {
+    expect(messages('@ 08:00\nabg 7.40/40.5/90/15', 'PN402')).toEqual([
+      'HCO3 15.0 mmol/L does not fit pH 7.40 and PaCO2 40.5 mmHg, which give 24.8 mmol/L: a transcription error, or values from different samples?',
+    ]);
+  });
+});
+
 describe('lists in messages read as sentences', () => {
   it('the units a field takes are a choice: "mmHg or kPa"', () => {
     expect(messages('abg po2 71 mmhgg', 'PN202')).toEqual(['`mmhgg` is not a unit Pneumark knows; PaO2 takes mmHg or kPa.']);

@@ -32,10 +32,10 @@ describe('notes with nothing to export, and notes that cannot be read', () => {
     'e-fine.pneu': '@ day 1 08:00\nvitals hr 90\n',
   });
 
-  it('CSV: a row per timepoint of each readable note, the header once; the unreadable file named on stderr, exit code 2', () => {
+  it('CSV: a row per timepoint of each readable note, the header once; the empty and the unreadable file named on stderr, exit code 2', () => {
     const r = cli(dir, ['export', '.', '--format', 'csv']);
     expect(r.status).toBe(2);
-    expect(r.stderr).toBe('pneumark: d-binary.pneu: looks like a binary file, not a note\n');
+    expect(r.stderr).toBe('pneumark: a-empty.pneu: holds no note (it is empty or has only blank lines)\npneumark: d-binary.pneu: looks like a binary file, not a note\n');
     const rows = rowsOf(r.stdout);
     expect(rows.map((x) => [x.file, x.timepoint, x.findings_errors])).toEqual([['c-broken.pneu', '0', '1'], ['e-fine.pneu', '0', '0']]);
     expect(rows[0]?.ph_pH).toBe('7.35'); // read despite the decimal comma (a warning); `vitls` is the error
@@ -49,9 +49,10 @@ describe('notes with nothing to export, and notes that cannot be read', () => {
     const fhir = cli(dir, ['export', '.', '--format', 'fhir']);
     expect(fhir.status).toBe(2);
     const bundles = JSON.parse(fhir.stdout) as { entry?: unknown[] }[];
-    // One Bundle per readable note; an empty note gives an empty collection, a header alone its
-    // values (age and height: a FHIR Observation needs no time, where a CSV row needs a timepoint).
-    expect(bundles.map((b) => b.entry?.length ?? 0)).toEqual([0, 2, 2, 1]);
+    // One Bundle per note that holds one (an empty note is reported as such, not exported as an
+    // empty collection); a header alone gives its values (age and height: a FHIR Observation needs
+    // no time, where a CSV row needs a timepoint).
+    expect(bundles.map((b) => b.entry?.length ?? 0)).toEqual([2, 2, 1]);
   });
 });
 

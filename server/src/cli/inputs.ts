@@ -591,6 +591,19 @@ export function readNoteBytes(path: string, cwd: string, stdin: () => Buffer): N
   return { path: shown, bytes, problem: null };
 }
 
+/**
+ * Why a note that `check`, `show` and `export` read holds nothing to work on: it is empty, or has
+ * only blank lines (standard input with nothing piped in, a file left empty by an export that
+ * failed). Reported as a problem, as an empty folder is, so a run fed nothing does not pass as
+ * clean. `fmt` formats such a note as it is.
+ */
+export const NO_NOTE = 'holds no note (it is empty or has only blank lines)';
+
+/** Whether a note's text is empty or blank (white space and byte-order marks only). */
+export function isBlankNote(text: string): boolean {
+  return !/\S/.test(text);
+}
+
 /** A note's text from its bytes, or why they are not a note (binary, not UTF-8). */
 export function noteFromBytes(read: NoteBytes, options: { readonly keepBom?: boolean } = {}): NoteInput {
   const { path: shown, bytes } = read;

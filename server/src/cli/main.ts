@@ -18,7 +18,7 @@ import { COLUMNS_END, COLUMNS_START, renderColumnTable } from '../core/export/do
 import { colourWanted, paint, type Paint } from './colour';
 import { runExport, exportRenderer } from './export-command';
 import { runFmt } from './fmt-command';
-import { listInputs, MAX_NOTE_BYTES, readNote, readUpTo, STDIN_NAME } from './inputs';
+import { isBlankNote, listInputs, MAX_NOTE_BYTES, NO_NOTE, readNote, readUpTo, STDIN_NAME } from './inputs';
 import { aloneLimits } from './analyse-alone';
 import { gather, type BatchDone, type WorkDone, type WorkItem } from './pool';
 import { CheckJsonWriter, countOutcome, jsonFileEntryOrProblem, writeCheckSarif, writeCheckText, type FileOutcome } from './render-check';
@@ -67,6 +67,10 @@ function show(args: readonly string[], io: Io): number {
   const note = readNote(positionals[0]!, io.cwd, io.stdin);
   if (note.text === null) {
     io.stderr.write(`pneumark: ${visible(note.path)}: ${visible(note.problem ?? '')}\n`);
+    return EXIT.usage;
+  }
+  if (isBlankNote(note.text)) {
+    io.stderr.write(`pneumark: ${visible(note.path)}: ${NO_NOTE}\n`);
     return EXIT.usage;
   }
   // show analyses and renders in this thread: a note that check would analyse in a worker of its

@@ -18,6 +18,8 @@ import type { Finding } from '../core/types';
 import { CHECKS } from '../core/checks/registry';
 import type { Paint } from './colour';
 import { renderDerived } from './render-derived';
+import { gasAsReadingsShowIt } from '../core/derive/interpret';
+import type { Settings } from '../core/settings';
 import { Legend } from './render-legend';
 import { visible } from './visible';
 
@@ -68,7 +70,7 @@ export function renderShow(path: string, result: NoteResult, p: Paint): string {
         printedHeader = true;
       }
       const kpa = headerLines.has(node.line) ? headerShowsKpa(analysis.timeline) : showsKpa(current);
-      out.push(renderSectionLine(node, statedByLine.get(node.line) ?? [], kpa, p, legend));
+      out.push(renderSectionLine(node, statedByLine.get(node.line) ?? [], kpa, result.settings, p, legend));
     } else if (node.kind === 'unknown') {
       out.push(`  ${p.red('?')} ${visible(node.text.trim())}`);
       legend.mark('unreadable-line');
@@ -78,22 +80,27 @@ export function renderShow(path: string, result: NoteResult, p: Paint): string {
       legend.mark('finding');
     }
     const ending = tpByEnd.get(node.line);
-    if (ending) out.push(...renderTimepointFooter(ending, analysis.derivation(ending.index), p, legend));
+    if (ending) out.push(...renderTimepointFooter(ending, analysis.derivation(ending.index), result.settings, p, legend));
   }
   out.push(...legend.lines(p));
   return out.join('\n');
 }
 
-/** A section line's values; where the gas unit in force is kPa (`kpa`), gas pressures in kPa first: `PaCO2 9.6 kPa (72 mmHg)`. */
-function renderSectionLine(node: Extract<LineNode, { kind: 'section' }>, stated: readonly StatedValue[], kpa: boolean, p: Paint, legend: Legend): string {
+/**
+ * A section line's values; where the gas unit in force is kPa (`kpa`), gas pressures in kPa first:
+ * `PaCO2 9.6 kPa (72 mmHg)`, a PaO2 or PaCO2 with the decimals that keep it on its side of the
+ * thresholds the readings name (`gasAsReadingsShowIt`): `PaO2 7.99 kPa (59.9 mmHg)` beside "below 8.0 kPa".
+ */
+function renderSectionLine(node: Extract<LineNode, { kind: 'section' }>, stated: readonly StatedValue[], kpa: boolean, settings: Settings, p: Paint, legend: Legend): string {
   const head = `  ${p.blue(visible(node.section).padEnd(8))}`;
   if (node.section === 'note') return `${head} ${p.dim(visible(node.prose?.text ?? ''))}`;
   const parts = stated.map((s) => {
     const inKpa = kpa && !s.unitDoubt ? statedInKpa(s) : null;
+    const asRead = inKpa ? gasAsReadingsShowIt(s, settings) : null;
     // A bare number whose unit is in doubt is shown as written, with what it would be if it was
     // written in the likely unit (never a conversion from the unit it is doubted in).
-    const alt = inKpa ? formatStated(s) : s.unitDoubt ? ifLikelyUnit(s) : s.unit !== 'fraction' ? formatAlternative(s) : null;
-    const value = inKpa ?? (s.unitDoubt ? `${s.item.value?.text ?? ''} ?` : formatStated(s));
+    const alt = asRead ? `${asRead.mmHg} mmHg` : inKpa ? formatStated(s) : s.unitDoubt ? ifLikelyUnit(s) : s.unit !== 'fraction' ? formatAlternative(s) : null;
+    const value = asRead ? `${asRead.kpa} kPa` : inKpa ?? (s.unitDoubt ? `${s.item.value?.text ?? ''} ?` : formatStated(s));
     if (s.unitDoubt) legend.mark('unit-doubt');
     if (!s.usable) legend.mark('not-used');
     const flag = s.usable ? '' : p.yellow(' (not used)');
@@ -119,7 +126,7 @@ export function ifLikelyUnit(s: StatedValue): string | null {
   return `if ${displayUnit(likely.id)}: ${inRead}${unit}`;
 }
 
-function renderTimepointFooter(tp: Timepoint, derivation: TimepointDerivation | undefined, p: Paint, legend: Legend): string[] {
+function renderTimepointFooter(tp: Timepoint, derivation: TimepointDerivation | undefined, settings: Settings, p: Paint, legend: Legend): string[] {
   const carried = [...tp.values.values()].filter((v) => v.origin.kind === 'carried');
   const lines: string[] = [];
   const groups = new Map<string, string[]>();
@@ -127,10 +134,11 @@ function renderTimepointFooter(tp: Timepoint, derivation: TimepointDerivation | 
     const from = visible(describeOrigin(v.origin));
     const list = groups.get(from) ?? [];
     const inKpa = showsKpa(tp) ? statedInKpa(v.stated) : null;
+    const asRead = inKpa ? gasAsReadingsShowIt(v.stated, settings) : null;
     // Marked as on the line it was stated on: a value not used there is not used where it carries to.
     if (!v.stated.usable) legend.mark('not-used');
     const flag = v.stated.usable ? '' : p.yellow(' (not used)');
-    list.push(`${shortOf(v.stated.fieldId)} ${visible(inKpa ? `${inKpa} (${formatStated(v.stated)})` : formatStated(v.stated))}${flag}`);
+    list.push(`${shortOf(v.stated.fieldId)} ${visible(asRead ? `${asRead.kpa} kPa (${asRead.mmHg} mmHg)` : inKpa ? `${inKpa} (${formatStated(v.stated)})` : formatStated(v.stated))}${flag}`);
     groups.set(from, list);
   }
   for (const [from, values] of groups) lines.push(`  ${p.magenta('carried'.padEnd(8))} ${values.join(p.dim(' · '))} ${p.dim(`(${from})`)}`);

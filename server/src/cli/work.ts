@@ -9,7 +9,7 @@ import type { Settings } from '../core/settings';
 import type { Finding, Severity } from '../core/types';
 import { NONE } from '../core/util/lists';
 import { ProjectConfigs } from '../node/project-config';
-import { noteFromBytes, readNoteBytes, type NoteBytes, type NoteInput } from './inputs';
+import { isBlankNote, noteFromBytes, NO_NOTE, readNoteBytes, type NoteBytes, type NoteInput } from './inputs';
 import { countSeverities, type SeverityCounts } from './render-show';
 import { timepointsJson } from './timepoints-json';
 
@@ -81,6 +81,7 @@ export class NoteWorker {
   analyse(path: string, read: NoteBytes, task: Task): FileReport {
     const note: NoteInput = noteFromBytes(read);
     if (note.text === null) return { path: note.path, problem: note.problem, findings: [] };
+    if (isBlankNote(note.text)) return { path: note.path, problem: NO_NOTE, findings: [] };
     const result = checkNote(note.text, this.settingsFor(path));
     if (task.kind === 'check') {
       const timepoints = task.timepoints ? { timepoints: timepointsJson(result) } : {};

@@ -139,6 +139,16 @@ export function gasPressureText(mmHg: number, decimals: number, kpa: boolean): s
   return kpa ? `${kpaNumber(mmHg)} kPa (${inMmhg})` : inMmhg;
 }
 
+/**
+ * A stated gas pressure quoted back in a message, its number as the note wrote it: `6.68 kPa (50
+ * mmHg)` where gas pressures are shown in kPa first (`kpa`), `40.5 mmHg` otherwise.
+ */
+export function statedGasText(s: StatedValue, kpa: boolean): string {
+  const mmHg = s.value ?? Number.NaN;
+  const inKpa = kpa ? statedKpaNumber(s) : null;
+  return inKpa !== null ? `${inKpa} kPa (${formatNumber(mmHg, 0)} mmHg)` : `${statedNumber(s) ?? formatNumber(mmHg, 0)} mmHg`;
+}
+
 /** Whether a field is a gas pressure a note may write in kPa (PaO2, PaCO2; not a blood pressure). */
 export function isKpaField(fieldId: string): boolean {
   return fieldById(fieldId)?.units?.includes('kPa') === true;

@@ -3,7 +3,7 @@ import { describeInputOrigin } from '../derive/context';
 import { ALVEOLAR_ROUNDING_MMHG, isAboveAlveolar } from '../derive/gas-exchange';
 import { derivedValueOf } from '../derive/registry';
 import { SOURCES } from '../physiology';
-import { gasPressureText, showsKpa } from '../present';
+import { gasPressureText, showsKpa, statedGasText } from '../present';
 import { toRange } from '../syntax/tree';
 import { formatNumber } from '../util/format';
 import { defineCheck } from './check';
@@ -39,7 +39,7 @@ export const pao2AboveAlveolar = defineCheck({
       message: alveolar.value < 0
         // The alveolar gas equation gives less than nothing: the inputs contradict each other whatever the PaO2.
         ? `No PaO2 is possible here: with ${allowed}, the barometric pressure and the PaCO2 in force, the alveolar PO2 comes out at ${gasPressureText(alveolar.value, 0, kpa)}. Check the FiO2, the altitude or pressure, and the units of PaCO2 and PaO2.`
-        : `PaO2 ${gasPressureText(pao2.stated.value, 0, kpa)} is above the alveolar PO2 of ${gasPressureText(alveolar.value, 0, kpa)} that ${allowed} allows here: check the FiO2, the unit, and whether the sample had an air bubble.`,
+        : `PaO2 ${statedGasText(pao2.stated, kpa)} is above the alveolar PO2 of ${gasPressureText(alveolar.value, 0, kpa)} that ${allowed} allows here: check the FiO2, the unit, and whether the sample had an air bubble.`,
       related,
     });
   },

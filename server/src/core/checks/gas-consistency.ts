@@ -1,6 +1,6 @@
 /** pH, PCO2 and HCO3 of one gas, arterial or venous, must agree (Henderson–Hasselbalch). */
 import { acidBaseConsistency, HCO3_CONSISTENCY_TOLERANCE, SOURCES } from '../physiology';
-import { gasPressureText, kpaResolutionMmhg, showsKpa } from '../present';
+import { kpaResolutionMmhg, showsKpa, statedGasText } from '../present';
 import { toRange } from '../syntax/tree';
 import { formatNumber } from '../util/format';
 import { defineCheck, type TimepointContext } from './check';
@@ -50,12 +50,13 @@ function checkGas(ctx: TimepointContext, gas: GasFields): void {
   let result = acidBaseConsistency(ph, pco2, hco3);
   if (!result || result.consistent) return;
   // A PCO2 written in kPa is compared at the resolution it was written with, as its mmHg twin would be.
-  const resolution = kpaResolutionMmhg(tp.values.get(gas.pco2)!.stated);
+  const pco2Stated = tp.values.get(gas.pco2)!.stated;
+  const resolution = kpaResolutionMmhg(pco2Stated);
   if (resolution > 0) result = acidBaseConsistency(ph, pco2, hco3, resolution);
   if (!result || result.consistent) return;
   const stated = tp.values.get(gas.hco3)!.stated;
   ctx.report({
     range: toRange(stated.line, stated.item.value?.span ?? stated.item.span),
-    message: `HCO3 ${formatNumber(hco3, 1)} mmol/L does not fit ${gas.phWords}pH ${formatNumber(ph, 2)} and ${gas.pco2Name} ${gasPressureText(pco2, 0, showsKpa(tp))}, which give ${formatNumber(result.calculatedHco3MmolL, 1)} mmol/L: a transcription error, or values from different samples?`,
+    message: `HCO3 ${formatNumber(hco3, 1)} mmol/L does not fit ${gas.phWords}pH ${formatNumber(ph, 2)} and ${gas.pco2Name} ${statedGasText(pco2Stated, showsKpa(tp))}, which give ${formatNumber(result.calculatedHco3MmolL, 1)} mmol/L: a transcription error, or values from different samples?`,
   });
 }

@@ -8,8 +8,9 @@ import { ANION_GAP_UPPER_NORMAL_MMOL_L, BERLIN_BAND_SEVERITY, HCO3_CENTRE_MMOL_L
 import { sideOf } from '../physiology/numeric';
 import { MMHG_PER_KPA } from '../physiology/units';
 import type { Settings } from '../settings';
-import { decimalsAgainst, formatAgainst, formatNumber, formatShort, rangeAgainst, wordList } from '../util/format';
-import { KPA_DECIMALS, kpaFromMmhg, kpaNumber, showsKpa } from '../present';
+import { decimalsAgainst, formatAgainst, formatNumber, formatShort, rangeAgainst, wordList, writtenDecimals } from '../util/format';
+import { KPA_DECIMALS, kpaFromMmhg, kpaNumber, kpaResolutionMmhg, showsKpa, statedKpaNumber, statedNumber } from '../present';
+import type { StatedValue } from '../analysis/model';
 import { classification } from './acid-base';
 import { isAboveAlveolar } from './gas-exchange';
 import { SEA_LEVEL_MMHG } from './atmosphere';
@@ -362,7 +363,7 @@ function readRespiratoryFailure(g: GasFacts, out: Interpretation[]): void {
 // only where the reading checks above chose it (so `pao2`, `paco2`, `fio2`… are there when used).
 
 function oxygenationNotReadText(g: GasFacts): string {
-  return `PaO2 ${g.gas.value(g.pao2!.value)}: oxygenation not read, as ${NOT_READ}.`;
+  return `PaO2 ${g.gas.measured(g.pao2!.value, g.o2Resolution)}: oxygenation not read, as ${NOT_READ}.`;
 }
 
 /** The PaO2 with the decimals that keep it on its side of the thresholds named. */
@@ -531,7 +532,7 @@ function mechanism(g: GasFacts): Interpretation {
   const limit = upper?.value ?? AA_UPPER_NORMAL_NO_AGE_MMHG;
   const causes: string[] = [];
   if (pio2.value < LOW_PIO2_MMHG) causes.push(`low inspired oxygen (PiO2 ${gas.value(pio2.value, LOW_PIO2_MMHG)})`);
-  if (hypercapnic) causes.push(`hypoventilation (PaCO2 ${gas.value(paco2.value, settings.hypercapniaAboveMmhg)})`);
+  if (hypercapnic) causes.push(`hypoventilation (PaCO2 ${gas.measured(paco2.value, g.co2Resolution, settings.hypercapniaAboveMmhg)})`);
   const raised = gradient.value > limit;
   const gradientShown = gas.value(gradient.value, limit);
   const limitShown = gas.limit(limit, gradient.value);
@@ -549,7 +550,7 @@ function mechanism(g: GasFacts): Interpretation {
     const alveolar = c.derivedValue('pao2_alveolar');
     const lowering: string[] = [];
     if (sideOf(paco2.value, UPPER_NORMAL_PACO2_MMHG, g.co2Resolution) > 0) {
-      lowering.push(`mild hypoventilation (PaCO2 ${gas.value(paco2.value, UPPER_NORMAL_PACO2_MMHG)}, above ${gas.limit(UPPER_NORMAL_PACO2_MMHG, paco2.value)} but not above ${gas.limit(settings.hypercapniaAboveMmhg, paco2.value)})`);
+      lowering.push(`mild hypoventilation (PaCO2 ${gas.measured(paco2.value, g.co2Resolution, UPPER_NORMAL_PACO2_MMHG, settings.hypercapniaAboveMmhg)}, above ${gas.limit(UPPER_NORMAL_PACO2_MMHG, paco2.value)} but not above ${gas.limit(settings.hypercapniaAboveMmhg, paco2.value)})`);
     }
     if (pio2.value < SEA_LEVEL_AIR_PIO2_MMHG - 0.5) {
       lowering.push(`a PiO2 a little below that of air at sea level (${gas.value(pio2.value, LOW_PIO2_MMHG)}, about ${gas.limit(SEA_LEVEL_AIR_PIO2_MMHG, pio2.value)} there)`);
@@ -706,4 +707,30 @@ function acidBaseText(cls: AcidBaseClassification, gas: GasWords, basis: AcidBas
     text += `; also consistent with an added ${extra.map((d) => DISORDER_WORDS[d]).join(' and ')}${why.length > 0 ? ` (${why.join(', ')})` : ''}`;
   }
   return `${text}.`;
+}
+
+/**
+ * A stated PaO2 or PaCO2 as a row of `show` writes it where gas pressures are shown in kPa first
+ * (`7.99 kPa (59.9 mmHg)`), as its kPa and mmHg numbers: each number with the decimals it is shown with anyway (the kPa as
+ * written), and more where fewer would put it on the other side of a threshold that a reading
+ * reads it against (the union of them: hypoxaemia, severe hypoxaemia and the low normal PaO2;
+ * hypercapnia, the normal PaCO2 range and hypocapnia), as the readings write it. A threshold the
+ * value is on at the decimals it was written with (6.7 kPa on 50 mmHg) pushes nothing apart, as in
+ * `GasWords.measured`. Null for any other value.
+ */
+export function gasAsReadingsShowIt(s: StatedValue, settings: Settings): { readonly kpa: string; readonly mmHg: string } | null {
+  const v = s.value;
+  if (v === null || s.word !== null || s.parts || (s.fieldId !== 'pao2' && s.fieldId !== 'paco2')) return null;
+  const kpaShown = statedKpaNumber(s);
+  const mmhgShown = statedNumber(s);
+  if (kpaShown === null || mmhgShown === null) return null;
+  const r = kpaResolutionMmhg(s);
+  const o2 = s.fieldId === 'pao2';
+  const t1 = offThreshold(v, o2 ? settings.hypoxaemiaBelowMmhg : settings.hypercapniaAboveMmhg, r);
+  const t2 = offThreshold(v, o2 ? SEVERE_HYPOXAEMIA_MMHG : UPPER_NORMAL_PACO2_MMHG, r);
+  const t3 = offThreshold(v, o2 ? LOW_NORMAL_PAO2_MMHG : settings.hypocapniaBelowMmhg, r);
+  const t4 = o2 ? NaN : offThreshold(v, PACO2_NORMAL_MMHG.low, r);
+  const mmHg = formatAgainst(v, writtenDecimals(mmhgShown), t1, t2, t3, t4);
+  const kpa = formatAgainst(kpaFromMmhg(v), writtenDecimals(kpaShown), kpaFromMmhg(t1), kpaFromMmhg(t2), kpaFromMmhg(t3), kpaFromMmhg(t4));
+  return { kpa, mmHg };
 }
