@@ -40,6 +40,27 @@ describe('a hostile note in a server with a small heap', () => {
     }
   }, 240_000);
 
+  it('analyses a small note even when other open notes already hold more than the heap budget', async () => {
+    // Eight notes of 20 MB, too large to analyse but held open: about 160 MB of text, over the
+    // budget (half of the 304 MB heap limit) and under a small note's ceiling (three quarters).
+    const client = await startClient({}, { server: { command: process.execPath, args: ['--max-old-space-size=256', 'dist/server.js'] } });
+    try {
+      for (let i = 0; i < 8; i++) {
+        const big = client.open(path(`held-${i}.pneu`), '@\n'.repeat(10 * 1024 * 1024));
+        expect((await client.diagnostics(big, () => true, 60_000)).diagnostics.map((d) => d.code)).toEqual(['too-large']);
+      }
+      // The heap is over the budget: a note over 64 K characters is refused...
+      const medium = client.open(path('medium.pneu'), '@ 08:00\nvitals hr 80\n'.repeat(4_000));
+      expect((await client.diagnostics(medium, () => true, 60_000)).diagnostics.map((d) => d.code)).toEqual(['too-costly']);
+      // ...and a small one is analysed all the same.
+      const small = client.open(path('small.pneu'), '@ 08:00\nvitals spo2 104\n');
+      expect((await client.diagnostics(small, () => true, 60_000)).diagnostics.map((d) => d.code)).toEqual(['PN306']);
+      expect(client.process.exitCode).toBeNull();
+    } finally {
+      await client.close();
+    }
+  }, 240_000);
+
   it('refuses a note with a line too long to analyse within that memory, before reading it, and reads the note once the line is cut down', async () => {
     // A finding on every two characters (`q` is no key of a vitals line): about 750 bytes of heap
     // per character of the line, all in one step of the reading (a line is never cut in two).

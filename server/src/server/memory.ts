@@ -109,6 +109,24 @@ export function overHeapBudget(collector: IdleCollector, budget = heapBudgetByte
 }
 
 /**
+ * The longest note (in UTF-16 characters) held to the budget only when the heap nears V8's limit.
+ * Even a hostile note this short keeps at most about 52 MB (`HEAP_PER_LINE_CHAR` bytes a
+ * character), so when the heap is over the budget it is other notes that filled it: dropping this
+ * one's analysis would free little and blame it for what it did not do.
+ */
+export const SMALL_NOTE_CHARS = 64 * 1024;
+
+/**
+ * The heap an analysis of a note of `chars` characters may leave in use: the budget for a big
+ * note; for a small one (`SMALL_NOTE_CHARS`), the budget plus half of what is left above it,
+ * which keeps the room of a small note's worst analysis below V8's limit even then.
+ */
+export function heapCeilingFor(chars: number, limit = getHeapStatistics().heap_size_limit): number {
+  const budget = heapBudgetBytes(limit);
+  return chars <= SMALL_NOTE_CHARS ? budget + (limit - budget) / 2 : budget;
+}
+
+/**
  * The heap one character of a line may cost its analysis at most, as measured: a line of `q q q …`
  * (a finding on every two characters, an unknown key each) keeps about 750 bytes per character.
  * A note is read in steps of whole lines, so the heap is looked at only after a line is read.
