@@ -1,7 +1,7 @@
 // The language server's memory on hostile notes. A note of nothing but bare `@` lines is a
-// timepoint and a finding on every two bytes, and its analysis keeps over 600 bytes of heap per
+// timepoint and a finding on every two bytes, and its analysis keeps about 470 bytes of heap per
 // byte: 4 MB of it (the largest note `pneumark.maxNoteSizeKb` lets through) would take the server
-// past 2.5 GB. The server is started here with a small heap (`--max-old-space-size`), so a server
+// past 1.9 GB. The server is started here with a small heap (`--max-old-space-size`), so a server
 // that read such a note to the end would die of it; it must instead stop, say why on the note,
 // and go on serving the other notes. No timing is asserted.
 import { join } from 'node:path';

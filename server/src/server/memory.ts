@@ -89,9 +89,9 @@ export class IdleCollector {
 
 /**
  * The heap the server lets its analyses fill: half of V8's limit, at most 1.5 GB. A note's
- * analysis keeps from about 17 bytes of heap per byte of an ordinary note to over 600 per byte of
+ * analysis keeps from about 17 bytes of heap per byte of an ordinary note to about 470 per byte of
  * a hostile one (a bare `@` on every line: a timepoint and a finding per two bytes), so a 4 MB
- * note can need anything from 70 MB to 2.5 GB. The server reads a big note in steps and looks at
+ * note can need anything from 70 MB to 1.9 GB. The server reads a big note in steps and looks at
  * the heap after each one (`overHeapBudget`); an analysis that outgrows the budget is dropped, and
  * the note says why, rather than the server dying of V8's fatal out-of-memory error.
  */
