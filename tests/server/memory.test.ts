@@ -1,7 +1,7 @@
 // The server's memory upkeep: garbage collected once idle after analyses, never during a burst.
 import { getHeapSpaceStatistics } from 'node:v8';
 import { afterEach, describe, expect, it, vi } from 'vitest';
-import { heapBudgetBytes, IDLE_COLLECT_MS, IdleCollector, keepYoungGenerationSmall, lineLongerThan, maxLineChars, overHeapBudget } from '../../server/src/server/memory';
+import { heapBudgetBytes, heapCeilingFor, IDLE_COLLECT_MS, IdleCollector, keepYoungGenerationSmall, lineLongerThan, maxLineChars, overHeapBudget, SMALL_NOTE_CHARS } from '../../server/src/server/memory';
 
 afterEach(() => {
   vi.useRealTimers();
@@ -74,6 +74,16 @@ describe('the heap budget of analyses', () => {
     expect(overHeapBudget(new IdleCollector(null), 1)).toBe(true);
     expect(overHeapBudget(new IdleCollector(collect), Number.MAX_SAFE_INTEGER)).toBe(false);
     expect(collect).toHaveBeenCalledTimes(2);
+  });
+
+  it('holds a big note to the budget, and a small one only to the budget plus half the room above it', () => {
+    const MB = 1048576;
+    expect(heapCeilingFor(SMALL_NOTE_CHARS + 1, 400 * MB)).toBe(200 * MB);
+    expect(heapCeilingFor(SMALL_NOTE_CHARS, 400 * MB)).toBe(300 * MB);
+    expect(heapCeilingFor(0, 8192 * MB)).toBe((1536 + (8192 - 1536) / 2) * MB);
+    // Even a hostile small note (800 bytes of heap a character at most, see maxLineChars) fits
+    // between its ceiling and V8's limit, down to a limit as small as 128 MB.
+    expect(128 * MB - heapCeilingFor(SMALL_NOTE_CHARS, 128 * MB)).toBeGreaterThan(SMALL_NOTE_CHARS * 800 * 0.6);
   });
 
   it('finds the first line longer than a limit, with every line end (LF, CRLF, CR) counted as the editor counts it', () => {

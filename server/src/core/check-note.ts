@@ -21,7 +21,7 @@ import { withDefaults, type Settings } from './settings';
 import { rangeBetween, type NoteTree } from './syntax/tree';
 import { comparePositions, type Finding, type Fix, type Range } from './types';
 import { ownString } from './util/strings';
-import { keptList, NONE } from './util/lists';
+import { NONE } from './util/lists';
 import { keptFor, SmallStore, type Kept } from './util/small-store';
 import { derivationOf } from './derive/registry';
 
@@ -77,6 +77,7 @@ export function runChecks(analysis: NoteAnalysis, settings: Settings, checks: re
   // timepoint to timepoint (a big note has thousands of timepoints and dozens of checks).
   let current: CheckDef | null = null;
   let own: Finding[] = [];
+  const gathered: Finding[] = [];
   // Values shared by the checks of one timepoint: one store, emptied for each timepoint.
   const timepointShared = new SmallStore<Kept<unknown, TimepointContext>, unknown>();
   const ctx: { -readonly [K in keyof TimepointContext]: TimepointContext[K] } = {
@@ -99,8 +100,10 @@ export function runChecks(analysis: NoteAnalysis, settings: Settings, checks: re
     ctx.derivation = analysis.derivation(i);
     timepointShared.clear();
     // Without a cache the timepoint's findings go straight into the note's list (sorted below):
-    // no list per timepoint to make and copy.
-    own = cache ? keptList<Finding>() : findings;
+    // no list per timepoint to make and copy. With one they are gathered in `gathered`, and the
+    // cache keeps a copy of their exact length (a list grown by `push` keeps room for 17), or the
+    // shared empty list: a big note has thousands of timepoints, most with no finding.
+    own = cache ? gathered : findings;
     for (let k = 0; k < perTimepoint.length; k++) {
       const check = perTimepoint[k]!;
       current = check;
@@ -111,8 +114,9 @@ export function runChecks(analysis: NoteAnalysis, settings: Settings, checks: re
       }
     }
     if (cache) {
-      cache.set(timepoint, own);
+      cache.set(timepoint, own.length === 0 ? NONE : own.slice());
       for (const f of own) findings.push(f);
+      own.length = 0;
     }
   }
   // Codes are ASCII (`PN410`): compared by code unit, the same order on every machine and locale.
@@ -120,11 +124,23 @@ export function runChecks(analysis: NoteAnalysis, settings: Settings, checks: re
   return { analysis, findings, settings };
 }
 
+/**
+ * The message of the last finding, as a string of its own (`ownString`). Runs of findings with the
+ * same message (a bare `@` on every line of a note) share it rather than keep a copy each. The
+ * text it was made from is not kept: it may be a slice of the whole note.
+ */
+let LAST_MESSAGE = '';
+
+function ownMessage(message: string): string {
+  if (message !== LAST_MESSAGE) LAST_MESSAGE = ownString(message);
+  return LAST_MESSAGE;
+}
+
 function toFinding(check: CheckDef, r: Report): Finding {
   const code = check.code;
   const severity = r.severity ?? check.severity;
   // Kept as long as the note: in one piece, not the tree of parts it was built from.
-  const message = ownString(r.message);
+  const message = ownMessage(r.message);
   const fixes = r.fixes ?? NONE;
   const anchor = docAnchor(check);
   // Two classes rather than a spread of `related`: no object made only to be spread, and each makes

@@ -89,9 +89,9 @@ export class IdleCollector {
 
 /**
  * The heap the server lets its analyses fill: half of V8's limit, at most 1.5 GB. A note's
- * analysis keeps from about 17 bytes of heap per byte of an ordinary note to over 600 per byte of
+ * analysis keeps from about 17 bytes of heap per byte of an ordinary note to about 470 per byte of
  * a hostile one (a bare `@` on every line: a timepoint and a finding per two bytes), so a 4 MB
- * note can need anything from 70 MB to 2.5 GB. The server reads a big note in steps and looks at
+ * note can need anything from 70 MB to 1.9 GB. The server reads a big note in steps and looks at
  * the heap after each one (`overHeapBudget`); an analysis that outgrows the budget is dropped, and
  * the note says why, rather than the server dying of V8's fatal out-of-memory error.
  */
@@ -106,6 +106,24 @@ export function heapBudgetBytes(limit = getHeapStatistics().heap_size_limit): nu
 export function overHeapBudget(collector: IdleCollector, budget = heapBudgetBytes()): boolean {
   if (getHeapStatistics().used_heap_size <= budget) return false;
   return !collector.collectNow() || getHeapStatistics().used_heap_size > budget;
+}
+
+/**
+ * The longest note (in UTF-16 characters) held to the budget only when the heap nears V8's limit.
+ * Even a hostile note this short keeps at most about 52 MB (`HEAP_PER_LINE_CHAR` bytes a
+ * character), so when the heap is over the budget it is other notes that filled it: dropping this
+ * one's analysis would free little and blame it for what it did not do.
+ */
+export const SMALL_NOTE_CHARS = 64 * 1024;
+
+/**
+ * The heap an analysis of a note of `chars` characters may leave in use: the budget for a big
+ * note; for a small one (`SMALL_NOTE_CHARS`), the budget plus half of what is left above it,
+ * which keeps the room of a small note's worst analysis below V8's limit even then.
+ */
+export function heapCeilingFor(chars: number, limit = getHeapStatistics().heap_size_limit): number {
+  const budget = heapBudgetBytes(limit);
+  return chars <= SMALL_NOTE_CHARS ? budget + (limit - budget) / 2 : budget;
 }
 
 /**

@@ -48,7 +48,7 @@ import { notePathOf, ProjectConfigs, type FoundConfig } from '../node/project-co
 import { ConfigWatcher, filesToWatch, foldersToWatch, insideFolders } from './config-watch';
 import { supersededMessage } from './config-problems';
 import { DEFAULT_CLIENT_SETTINGS, MAX_NOTE_SIZE_KB, effectiveSettings, readClientSettings, settingsKey, type ClientSettings, type EffectiveSettings } from './settings';
-import { heapBudgetBytes, IdleCollector, lineLongerThan, maxLineChars, overHeapBudget } from './memory';
+import { heapBudgetBytes, heapCeilingFor, IdleCollector, lineLongerThan, maxLineChars, overHeapBudget, SMALL_NOTE_CHARS } from './memory';
 import { findingsToPublish, isHintRef, rangesOverlap, toCodeAction, toCompletionItem, toDiagnostic, toDocumentSymbol, toInlayHint, tooManyFindings } from './translate';
 
 interface NoteState {
@@ -452,15 +452,27 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     return `Pneumark stopped analysing this note: after ${share} % of it, its analysis held more than the ${budget} MB of memory the language server allows. Very many timepoints, items or findings (a bare \`@\` on every line, say) take the most; split it into smaller notes, or run \`pneumark check\` on it, which analyses a big note in a process of its own.`;
   }
 
+  function heapFullMessage(): string {
+    const budget = Math.round(heapBudgetBytes() / 1048576);
+    return `Pneumark did not analyse this note for now: the notes open in the language server already hold far more than the ${budget} MB of memory it allows, though this note is small. Close the biggest of them (\`pneumark check\` analyses a big note in a process of its own); this note is analysed again at its next change.`;
+  }
+
   /**
-   * Drops the note's analysis when the heap is over budget (see memory.ts), so that the server
-   * stays alive and answers; the note is not read again while it is at least as long as what was
-   * read then. True when it was dropped.
+   * Drops the note's analysis when the heap is over its ceiling (see `heapCeilingFor` in
+   * memory.ts), so that the server stays alive and answers. A big note is not read again while it
+   * is at least as long as what was read then. A small note is held only to a higher ceiling,
+   * since its own analysis cannot be what filled the heap: when even that is passed, the note says
+   * that the other notes hold the memory, and its next version is read again. True when dropped.
    */
   function refusedForMemory(uri: string, state: NoteState, version: number, started: number, text: string): boolean {
-    if (!overHeapBudget(collector)) return false;
+    if (!overHeapBudget(collector, heapCeilingFor(text.length))) return false;
     const read = state.session.readLength;
     state.session = new NoteSession(state.settings.analysis);
+    if (text.length <= SMALL_NOTE_CHARS) {
+      publish(uri, state, version, started, [refusedDiagnostic(heapFullMessage())]);
+      collector.collectNow();
+      return true;
+    }
     state.refused = { from: Math.min(read, text.length), message: tooCostlyMessage(read, text.length) };
     publish(uri, state, version, started, [refusedDiagnostic(state.refused.message)]);
     collector.collectNow();

@@ -494,7 +494,8 @@ function processBlock(lines: readonly LineNode[], start: number, end: number, in
   issues.length = 0;
   // Kept as long as the timepoint: a copy of its exact length, made by `slice` (an array made with
   // `new Array(n)` would be tracked by its allocation site and pretenured, see `HeldValue`).
-  const keptStated = stated.slice(0, count) as StatedValue[];
+  // A timepoint with nothing stated (a bare `@`) shares the empty list.
+  const keptStated: readonly StatedValue[] = count === 0 ? NONE : stated.slice(0, count) as StatedValue[];
   for (let k = 0; k < count; k++) stated[k] = undefined;
   return new Block(tpLabel === null ? null : freeze(index, tpLine, tpLabel, tpStart, tpTime, keptStated, endLine, stateOut, settings), keptHeader, keptIssues, stateOut, timeOut);
 }
@@ -622,7 +623,7 @@ function duplicates(stated: readonly (StatedValue | undefined)[], from: number, 
       span: s.item.key?.span ?? s.item.span,
       // A later value that is not used itself (`ph 6.29`, impossible) still replaces the first: neither is used.
       message: `${s.field.label} is stated twice ${inHeader ? 'in the header' : 'at this timepoint'}; ${s.usable ? 'the later value is used' : 'the later value replaces the first, but is not used itself (see its finding)'}.`,
-      fixes: [],
+      fixes: NONE,
       related: [{ line: earlier.line, span: earlier.item.span, message: 'first stated here' }],
     });
   }

@@ -3,7 +3,7 @@
  * value reader record the problem under the check's alias, and these checks report it.
  */
 import type { ReadCheckAlias } from '../analysis/read-issues';
-import { lineFixToFix, toRange, type LineNode, type SyntaxCheckAlias } from '../syntax/tree';
+import { lineFixesToFixes, toRange, type LineNode, type SyntaxCheckAlias } from '../syntax/tree';
 import { defineCheck, forHeaderLines, forTimepointLines, type CheckContext, type CheckDef, type CheckDoc, type CheckTag } from './check';
 import type { Severity } from '../types';
 
@@ -15,7 +15,7 @@ function syntaxCheck(code: string, alias: SyntaxCheckAlias, title: string, sever
     if (node.issues.length === 0) return;
     for (const issue of node.issues) {
       if (issue.check !== alias) continue;
-      ctx.report({ range: toRange(node.line, issue.span), message: issue.message, fixes: issue.fixes.map((f) => lineFixToFix(node.line, f)), ...(issue.severity ? { severity: issue.severity } : {}) });
+      ctx.report({ range: toRange(node.line, issue.span), message: issue.message, fixes: lineFixesToFixes(node.line, issue.fixes), ...(issue.severity ? { severity: issue.severity } : {}) });
     }
   };
   return defineCheck({
@@ -24,7 +24,7 @@ function syntaxCheck(code: string, alias: SyntaxCheckAlias, title: string, sever
       forHeaderLines(ctx, visit);
       if (alsoRead === undefined) return;
       for (const issue of ctx.analysis.timeline.readIssues) {
-        if (issue.check === alsoRead) ctx.report({ range: toRange(issue.line, issue.span), message: issue.message, fixes: issue.fixes.map((f) => lineFixToFix(issue.line, f)) });
+        if (issue.check === alsoRead) ctx.report({ range: toRange(issue.line, issue.span), message: issue.message, fixes: lineFixesToFixes(issue.line, issue.fixes) });
       }
     },
     runTimepoint(ctx) {
@@ -42,7 +42,7 @@ function readCheck(code: string, alias: ReadCheckAlias, title: string, severity:
         ctx.report({
           range: toRange(issue.line, issue.span),
           message: issue.message,
-          fixes: issue.fixes.map((f) => lineFixToFix(issue.line, f)),
+          fixes: lineFixesToFixes(issue.line, issue.fixes),
           ...(issue.related ? { related: issue.related.map((r) => ({ range: toRange(r.line, r.span), message: r.message })) } : {}),
         });
       }

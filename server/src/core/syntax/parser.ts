@@ -194,7 +194,7 @@ export function parseLine(text: string, line: number): LineNode {
     return parseLineUnsafe(text, line);
   } catch {
     // Defensive: the parser is written not to throw, but a line must never take the note down.
-    return new BlankNode(line, text, null, [{ check: 'stray-text', span: { start: 0, end: text.length }, message: 'This line could not be read.', fixes: [] }]);
+    return new BlankNode(line, text, null, [{ check: 'stray-text', span: { start: 0, end: text.length }, message: 'This line could not be read.', fixes: NONE }]);
   } finally {
     releaseWords();
   }
@@ -459,7 +459,7 @@ function parseTimepoint(body: string, chunks: Word[], line: number, text: string
   let used = 0;
   const c0 = chunks[at];
   if (!c0) {
-    issues.push({ check: 'bad-time', span: marker.span, message: 'A timepoint needs a time: `@ day 1 07:40`, `@ 07:40` or `@ +2h30`.', fixes: [] });
+    issues.push({ check: 'bad-time', span: marker.span, message: 'A timepoint needs a time: `@ day 1 07:40`, `@ 07:40` or `@ +2h30`.', fixes: NONE });
   } else if (c0.end - c0.start === 3 && lowerCase(c0.text) === 'day') {
     const c1 = chunks[at + 1];
     // The number is left in SCANNED (no object per timepoint): read before anything scans again.
@@ -467,10 +467,10 @@ function parseTimepoint(body: string, chunks: Word[], line: number, text: string
     const dayLength = c1 ? scanWord(c1) : 0;
     const day = compact(SCANNED.value);
     if (!c1 || dayLength === 0 || dayLength !== c1.end - c1.start || !Number.isInteger(day) || day < 0 || !asciiDigitsOnly(body, c1.start, c1.end)) {
-      issues.push({ check: 'bad-time', span: c1 ? c1.span : c0.span, message: 'After `day` write the day number, e.g. `@ day 2 08:00`.', fixes: [] });
+      issues.push({ check: 'bad-time', span: c1 ? c1.span : c0.span, message: 'After `day` write the day number, e.g. `@ day 2 08:00`.', fixes: NONE });
       used = c1 ? 2 : 1;
     } else if (day > MAX_DAY) {
-      issues.push({ check: 'bad-time', span: c1.span, message: `\`day ${c1.text}\` is beyond the last day a note can name (day ${MAX_DAY}).`, fixes: [] });
+      issues.push({ check: 'bad-time', span: c1.span, message: `\`day ${c1.text}\` is beyond the last day a note can name (day ${MAX_DAY}).`, fixes: NONE });
       const c2 = chunks[at + 2];
       used = c2 && clockAt(body, c2.start, c2.end) !== null ? 3 : 2;
     } else {
@@ -481,7 +481,7 @@ function parseTimepoint(body: string, chunks: Word[], line: number, text: string
         used = 3;
       } else {
         if (c2 && looksLikeClock(c2.text)) {
-          issues.push({ check: 'bad-time', span: c2.span, message: `\`${c2.text}\` is not a time of day (00:00 to 23:59).`, fixes: [] });
+          issues.push({ check: 'bad-time', span: c2.span, message: `\`${c2.text}\` is not a time of day (00:00 to 23:59).`, fixes: NONE });
           used = 3;
         } else if (c2 && clockWithoutColon(c2.text) !== null) {
           // `@ day 2 0800`: a time written without its colon would otherwise become the label.
@@ -498,13 +498,13 @@ function parseTimepoint(body: string, chunks: Word[], line: number, text: string
     const over = minutes === null ? offsetOverflow(c0.text) : null;
     if ((minutes ?? over ?? 0) > MAX_OFFSET_MINUTES) {
       // Beyond any note's span, and beyond what a number keeps exactly: never a time (or a fix) built from it.
-      issues.push({ check: 'bad-time', span: c0.span, message: `\`${c0.text}\` is longer than a note can span (${MAX_DAY} days).`, fixes: [] });
+      issues.push({ check: 'bad-time', span: c0.span, message: `\`${c0.text}\` is longer than a note can span (${MAX_DAY} days).`, fixes: NONE });
     } else if (over !== null) {
       // `+2h90`: read as 3h30 it would move every later timepoint; what was meant is the writer's to say.
       const meant = offsetText(over);
       issues.push({ check: 'bad-time', span: c0.span, message: `\`${c0.text}\` runs over: hours after days go from 0 to 23 and minutes after hours or days from 0 to 59. Did you mean \`${meant}\`?`, fixes: [{ title: `Write \`${meant}\``, edits: [{ span: c0.span, newText: meant }] }] });
     } else if (minutes === null) {
-      issues.push({ check: 'bad-time', span: c0.span, message: `\`${c0.text}\` is not an offset; write it like \`+2h30\`, \`+45m\` or \`+1d\`.`, fixes: [] });
+      issues.push({ check: 'bad-time', span: c0.span, message: `\`${c0.text}\` is not an offset; write it like \`+2h30\`, \`+45m\` or \`+1d\`.`, fixes: NONE });
     } else {
       time = new TimeNode('offset', null, compact(minutes), body, c0.start, c0.end);
       splitOffset(body, c0, chunks[at + 1], issues);
@@ -515,11 +515,11 @@ function parseTimepoint(body: string, chunks: Word[], line: number, text: string
     if (clock !== null) {
       time = new TimeNode('clock', null, clock, body, c0.start, c0.end);
     } else if (looksLikeDate(c0.text)) {
-      issues.push({ check: 'bad-time', span: c0.span, message: `\`${c0.text}\` looks like a calendar date; Pneumark notes use relative days instead (\`@ day 2 08:00\`), which keeps dates of care out of shared notes.`, fixes: [] });
+      issues.push({ check: 'bad-time', span: c0.span, message: `\`${c0.text}\` looks like a calendar date; Pneumark notes use relative days instead (\`@ day 2 08:00\`), which keeps dates of care out of shared notes.`, fixes: NONE });
     } else if (looksLikeClock(c0.text)) {
-      issues.push({ check: 'bad-time', span: c0.span, message: `\`${c0.text}\` is not a time of day (00:00 to 23:59).`, fixes: [] });
+      issues.push({ check: 'bad-time', span: c0.span, message: `\`${c0.text}\` is not a time of day (00:00 to 23:59).`, fixes: NONE });
     } else {
-      issues.push({ check: 'bad-time', span: c0.span, message: `Expected a time after \`@\` (\`@ day 1 07:40\`, \`@ 07:40\` or \`@ +2h30\`), found \`${c0.text}\`.`, fixes: [] });
+      issues.push({ check: 'bad-time', span: c0.span, message: `Expected a time after \`@\` (\`@ day 1 07:40\`, \`@ 07:40\` or \`@ +2h30\`), found \`${c0.text}\`.`, fixes: NONE });
       used = 0;
     }
   }
@@ -1363,7 +1363,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
     if (group) {
       i = start + GROUP.used;
       if (group.count < 2 || group.count > 4) {
-        issues.push({ check: 'bad-shorthand', span: { start: group.start, end: group.end }, message: `A shorthand gas has 2 to 4 numbers (pH/PCO2/PO2/HCO3); this one has ${group.count}.`, fixes: [] });
+        issues.push({ check: 'bad-shorthand', span: { start: group.start, end: group.end }, message: `A shorthand gas has 2 to 4 numbers (pH/PCO2/PO2/HCO3); this one has ${group.count}.`, fixes: NONE });
       } else {
         const unit = unitAfter(glued, chunks, i, section, source);
         i += UNIT_CHUNKS;
@@ -1414,7 +1414,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
         while (i < n && chunks[i]!.start < feet.span.end) i++;
         continue;
       }
-      issues.push({ check: 'stray-text', span: chunk.span, message: `\`${chunk.text}\` has no key; write it as \`key value\`, e.g. \`hr 118\`.`, fixes: [] });
+      issues.push({ check: 'stray-text', span: chunk.span, message: `\`${chunk.text}\` has no key; write it as \`key value\`, e.g. \`hr 118\`.`, fixes: NONE });
       i++;
       continue;
     }
@@ -1432,7 +1432,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
         continue;
       }
       // `/`, `-`, `(80)`: punctuation is never a key (and a did-you-mean would turn it into one).
-      issues.push({ check: 'stray-text', span: chunk.span, message: `\`${chunk.text}\` is not a key; write items as \`key value\`, e.g. \`hr 118\`.`, fixes: [] });
+      issues.push({ check: 'stray-text', span: chunk.span, message: `\`${chunk.text}\` is not a key; write items as \`key value\`, e.g. \`hr 118\`.`, fixes: NONE });
       i++;
       continue;
     }
@@ -1470,10 +1470,10 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
           i += UNIT_CHUNKS;
           if (field?.kind === 'number') {
             // `hr 80/90`: numbers joined by a slash where the key takes one; nothing would be read from it.
-            issues.push({ check: 'missing-value', span: { start: key.start, end: group.end }, message: `\`${key.text}\` takes one number; \`${group.text}\` is ${countWord(group.count)} numbers, so it is not read.`, fixes: [] });
+            issues.push({ check: 'missing-value', span: { start: key.start, end: group.end }, message: `\`${key.text}\` takes one number; \`${group.text}\` is ${countWord(group.count)} numbers, so it is not read.`, fixes: NONE });
           } else if (field?.kind === 'pair' && group.count !== 2) {
             // `bp 120/80/60`: a pair is two numbers; a third would otherwise be dropped in silence.
-            issues.push({ check: 'missing-value', span: { start: key.start, end: group.end }, message: `\`${key.text}\` takes two numbers joined by a slash (\`${key.text} 120/80\`); \`${group.text}\` is ${countWord(group.count)}, so it is not read.`, fixes: [] });
+            issues.push({ check: 'missing-value', span: { start: key.start, end: group.end }, message: `\`${key.text}\` takes two numbers joined by a slash (\`${key.text} 120/80\`); \`${group.text}\` is ${countWord(group.count)}, so it is not read.`, fixes: NONE });
           }
           if (field?.id === 'bp' && group.count === 2) {
             // `bp 120/80 (93)`: the measured mean in brackets after the blood pressure, read as `map 93`.
@@ -1494,7 +1494,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
           items[count++] = numberItem(key.text, keyName, null, field, source, number, next.start + length, comma, unit, key.start);
           if (field?.kind === 'pair') {
             // `bp 120`: a key that takes two numbers with one; nothing would be read from it.
-            issues.push({ check: 'missing-value', span: { start: key.start, end: next.start + length }, message: `\`${key.text}\` takes two numbers joined by a slash (\`${key.text} 120/80\`); \`${next.text.slice(0, length)}\` is one, so it is not read.`, fixes: [] });
+            issues.push({ check: 'missing-value', span: { start: key.start, end: next.start + length }, message: `\`${key.text}\` takes two numbers joined by a slash (\`${key.text} 120/80\`); \`${next.text.slice(0, length)}\` is one, so it is not read.`, fixes: NONE });
           }
           continue;
         }
@@ -1504,7 +1504,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
     // is near; the words of a misspelt device, `room aor`, together): that it has no value would
     // only say it twice (`oxygen roomair`).
     if (!value && field !== null) {
-      issues.push({ check: 'missing-value', span: key.span, message: `\`${key.text}\` has no value.`, fixes: [] });
+      issues.push({ check: 'missing-value', span: key.span, message: `\`${key.text}\` has no value.`, fixes: NONE });
     }
     items[count++] = otherItem(key.text, keyName, null, field, value, unit, key.start);
   }

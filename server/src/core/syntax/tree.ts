@@ -6,6 +6,7 @@
 import type { Fix, Position, Range, Severity } from '../types';
 import type { FieldDef } from '../fields/registry';
 import type { SectionId } from '../fields/sections';
+import { NONE } from '../util/lists';
 
 /** A half-open span [start, end) of UTF-16 code units within one line. */
 export interface Span {
@@ -160,6 +161,11 @@ class At implements Position {
 
 class LineRange implements Range {
   constructor(readonly start: Position, readonly end: Position) {}
+}
+
+/** The fixes of an issue found on `line`, in the note's positions; the shared `NONE` when it has none. */
+export function lineFixesToFixes(line: number, fixes: readonly LineFix[]): readonly Fix[] {
+  return fixes.length === 0 ? NONE : fixes.map((f) => lineFixToFix(line, f));
 }
 
 export function lineFixToFix(line: number, fix: LineFix): Fix {

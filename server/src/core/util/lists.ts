@@ -12,12 +12,3 @@ export function pushAll<T>(target: T[], items: readonly T[]): void {
  * identifier, and a big note keeps tens of thousands of such lists. Frozen, so sharing is safe.
  */
 export const NONE: readonly never[] = Object.freeze([]);
-
-/**
- * A new empty list that will be kept (a session's findings of one timepoint), made by the `slice`
- * builtin rather than as a literal: V8 would pretenure a literal's allocation site whose lists all
- * survive (see the performance notes in DEVELOPERS.md).
- */
-export function keptList<T>(): T[] {
-  return NONE.slice() as T[];
-}
