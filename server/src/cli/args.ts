@@ -39,10 +39,10 @@ Run \`pneumark COMMAND --help\` for a command's options.
 Exit codes: 0 clean; 1 findings at error level, more warnings than --max-warnings, or notes that
 fmt --check would change; 2 a usage error, inputs that hold no note (an empty folder, a pattern
 that matches nothing; in check, show and export, a note that is empty or has only blank lines, as
-standard input with nothing piped in is), a note that could not be read, or analysed in the memory one note is
-given, or that fmt --write would not rewrite, a folder below those named that cannot be listed, an invalid pneumark.config.json (one line per
-problem on standard error; the run goes on with the defaults for that file), or standard output
-closed early (e.g. by head).
+standard input with nothing piped in is), a note that could not be read, or analysed in the memory
+one note is given, or that fmt --write would not rewrite, a folder below those named that cannot
+be listed, an invalid pneumark.config.json (one line per problem on standard error; the run goes
+on with the defaults for that file), or standard output closed early (e.g. by head).
 
 ${CAUTION}`,
   show: `Usage: pneumark show FILE
