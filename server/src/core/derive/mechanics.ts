@@ -234,11 +234,13 @@ export const mechanicalPower = defineDerived({
  * -supported breaths (Becher 2019), whose own equations Pneumark does not use.
  */
 function notVolumeControl(mode: string): string {
-  return `the simplified equation is for volume control with a constant flow, the airway pressure rising in a straight line through inspiration; in ${mode} the breaths are shaped otherwise, and pressure-controlled or -supported breaths need equations of their own (Becher T et al., Intensive Care Med 2019)`;
+  return `${CONSTANT_FLOW_ONLY}in ${mode} the breaths are shaped otherwise, and pressure-controlled or -supported breaths need equations of their own (Becher T et al., Intensive Care Med 2019)`;
 }
 
-const UNDER_NIV = 'the simplified equation is for volume control with a constant flow, the airway pressure rising in a straight line through inspiration; under NIV the breaths are pressure-supported, from EPAP up to IPAP, and pressure-shaped breaths need equations of their own (Becher T et al., Intensive Care Med 2019)';
-const UNDER_CPAP = 'the simplified equation is for volume control with a constant flow, the airway pressure rising in a straight line through inspiration; under CPAP the patient breathes spontaneously at one constant pressure, and the device gives no volume-controlled breath for the equation to describe';
+/** What the simplified equation describes, which each reason it is not worked out begins with. */
+const CONSTANT_FLOW_ONLY = 'the simplified equation is for volume control with a constant flow, the airway pressure rising in a straight line through inspiration; ';
+const UNDER_NIV = CONSTANT_FLOW_ONLY + 'under NIV the breaths are pressure-supported, from EPAP up to IPAP, and pressure-shaped breaths need equations of their own (Becher T et al., Intensive Care Med 2019)';
+const UNDER_CPAP = CONSTANT_FLOW_ONLY + 'under CPAP the patient breathes spontaneously at one constant pressure, and the device gives no volume-controlled breath for the equation to describe';
 
 /**
  * Why the simplified mechanical power is not worked out under the non-invasive therapy of an

@@ -270,7 +270,7 @@ const CONVERSIONS = new WeakMap<NoteResult, Partial<Record<GasUnit, TextEdit[]>>
 
 /** `convertNoteUnits` without the memo. */
 function keepingOutcomes(result: NoteResult, to: GasUnit): TextEdit[] {
-  let edits = conversionEdits(result, to, NO_EXTRA);
+  let edits = conversionEdits(result, to, ALL_NEAREST);
   if (edits.length === 0 || result.analysis.timeline.timepoints.length > VERIFIED_UP_TO_TIMEPOINTS) return edits;
   // The note as converted must read as the note does: the same physiology findings and reading
   // bands at every timepoint. Rounding to a unit's usual decimals can move a value across a
@@ -343,7 +343,7 @@ const RETRIES: readonly Choice[] = [
   { extra: 2, lean: 'high', co2Only: false, keep: false },
 ];
 
-const NO_EXTRA = (): Choice => NEAREST;
+const ALL_NEAREST = (): Choice => NEAREST;
 
 /**
  * What a conversion must keep, per timepoint: its physiology findings (PN4xx), each with its
@@ -386,8 +386,8 @@ function withoutNumbers(text: string): string {
   return out.replace(/\d+(?:\.\d+)?/g, '#').replace(/\b(?:kPa|mmHg)\b/g, '').replace(/\s+/g, '');
 }
 
-/** `convertNoteUnits` with each converted value written as `extraOf(value)` chooses. */
-function conversionEdits(result: NoteResult, to: GasUnit, extraOf: (s: StatedValue) => Choice): TextEdit[] {
+/** `convertNoteUnits` with each converted value written as `choiceOf(value)` chooses. */
+function conversionEdits(result: NoteResult, to: GasUnit, choiceOf: (s: StatedValue) => Choice): TextEdit[] {
   const edits: TextEdit[] = [];
   const tree = result.analysis.tree;
   const unitItems = gasUnitItems(result);
@@ -428,10 +428,10 @@ function conversionEdits(result: NoteResult, to: GasUnit, extraOf: (s: StatedVal
       doneShorthand.add(s.line);
       const node = tree.lines[s.line];
       const sh = node ? shorthandPressures(result, node) : null;
-      if (sh) edits.push(...shorthandEdits(sh, to, bareReadsAs(s.line), extraOf));
+      if (sh) edits.push(...shorthandEdits(sh, to, bareReadsAs(s.line), choiceOf));
       continue;
     }
-    edits.push(...valueEdits(s, field, to, bareReadsAs(s.line), extraOf(s)));
+    edits.push(...valueEdits(s, field, to, bareReadsAs(s.line), choiceOf(s)));
   }
   return edits;
 }
@@ -480,7 +480,7 @@ new unit is written after it (`7.35/5.3/9.1/24 kPa`). Left as it is when convert
  * pressure is unusual too, the numbers are kept as read with their unit written, as for any
  * shorthand with an unusual pressure.
  */
-function shorthandWithDoubt(sh: ShorthandPressures, to: GasUnit, bareAfter: GasUnit | null, readUnit: string, extraOf: (s: StatedValue) => Choice): TextEdit[] {
+function shorthandWithDoubt(sh: ShorthandPressures, to: GasUnit, bareAfter: GasUnit | null, readUnit: string, choiceOf: (s: StatedValue) => Choice): TextEdit[] {
   if (sh.parts.every((p) => p.unitDoubt)) return [];
   // Another pressure unusual too: the numbers are kept as read, with the unit they were read in written.
   if (sh.parts.some((p) => !p.unitDoubt && !ordinary(p, p.field))) return keepAsRead(sh.node.line, sh.end, false, readUnit, bareAfter);
@@ -488,7 +488,7 @@ function shorthandWithDoubt(sh: ShorthandPressures, to: GasUnit, bareAfter: GasU
   const edits: TextEdit[] = [];
   for (const s of sh.parts) {
     if (s.unitDoubt) continue;
-    const number = numberIn(s, s.field, to, extraOf(s).extra, leanOf(extraOf(s), s));
+    const number = numberIn(s, s.field, to, choiceOf(s).extra, leanOf(choiceOf(s), s));
     if (number === null || !s.item.value) return [];
     edits.push({ range: lineRange(sh.node.line, s.item.value.span.start, s.item.value.span.end), newText: number });
   }
@@ -498,16 +498,16 @@ function shorthandWithDoubt(sh: ShorthandPressures, to: GasUnit, bareAfter: GasU
   return edits;
 }
 
-function shorthandEdits(sh: ShorthandPressures, to: GasUnit, bareAfter: GasUnit | null, extraOf: (s: StatedValue) => Choice): TextEdit[] {
+function shorthandEdits(sh: ShorthandPressures, to: GasUnit, bareAfter: GasUnit | null, choiceOf: (s: StatedValue) => Choice): TextEdit[] {
   const line = sh.node.line;
   const readUnit = sh.parts[0]?.readUnit ?? null;
   if (!readUnit || sh.parts.some((p) => p.readUnit !== readUnit || p.value === null)) return [];
-  if (!sh.unit && sh.parts.some((p) => p.unitDoubt)) return shorthandWithDoubt(sh, to, bareAfter, readUnit, extraOf);
-  if (sh.parts.some((p) => !ordinary(p, p.field) || extraOf(p).keep)) return keepAsRead(line, sh.end, sh.unit !== null, readUnit, bareAfter);
+  if (!sh.unit && sh.parts.some((p) => p.unitDoubt)) return shorthandWithDoubt(sh, to, bareAfter, readUnit, choiceOf);
+  if (sh.parts.some((p) => !ordinary(p, p.field) || choiceOf(p).keep)) return keepAsRead(line, sh.end, sh.unit !== null, readUnit, bareAfter);
   const edits: TextEdit[] = [];
   if (readUnit !== to) {
     for (const s of sh.parts) {
-      const number = numberIn(s, s.field, to, extraOf(s).extra, leanOf(extraOf(s), s));
+      const number = numberIn(s, s.field, to, choiceOf(s).extra, leanOf(choiceOf(s), s));
       if (number === null || !s.item.value) return [];
       edits.push({ range: lineRange(line, s.item.value.span.start, s.item.value.span.end), newText: number });
     }
