@@ -20,7 +20,6 @@ import ignore, { type Ignore } from 'ignore';
 import { globSync, isDynamicPattern, type FileSystemAdapter } from 'tinyglobby';
 import { CONFIG_FILE_NAME } from '../core/config';
 import { globstarsIn, MAX_GLOBSTARS, refuseEmptyPaths } from './args';
-import { plainRules, type PathRules } from './ignore-rules';
 
 /** How a note read from standard input (`-`) is named in output. */
 export const STDIN_NAME = '<stdin>';
@@ -367,7 +366,7 @@ function splitExclusions(cwd: string, exclude: readonly string[]): { paths: stri
 
 /** A `.pneuignore` file's patterns and where they are matched from. */
 interface IgnoreLevel {
-  readonly patterns: PathRules;
+  readonly patterns: Ignore;
   /** Its folder relative to the top (see `IgnoreFiles`), with a slash after it; empty for the top. */
   readonly prefix: string;
 }
@@ -400,7 +399,7 @@ interface FolderState {
  * per note.
  */
 class IgnoreFiles {
-  private readonly read = new Map<string, PathRules | null>();
+  private readonly read = new Map<string, Ignore | null>();
   /** Lines left out of the `.pneuignore` files read, for holding more `**` than `MAX_GLOBSTARS`: file and 1-based line. */
   readonly skipped: { readonly file: string; readonly line: number }[] = [];
   private readonly folders = new Map<string, FolderState>();
@@ -488,7 +487,7 @@ class IgnoreFiles {
    * regular file: a `.pneuignore` that is a pipe nobody writes to would hold the run up forever,
    * and one that is a link to /dev/zero would fill the memory.
    */
-  private patternsIn(folder: string): PathRules | null {
+  private patternsIn(folder: string): Ignore | null {
     let patterns = this.read.get(folder);
     if (patterns === undefined) {
       patterns = null;
@@ -501,10 +500,7 @@ class IgnoreFiles {
           if (stat.isFile()) {
             const lines = readAll(fd, stat.size).toString('utf8').split(/\r?\n/);
             lines.forEach((line, i) => { if (globstarsIn(line) > MAX_GLOBSTARS) this.skipped.push({ file: join(folder, IGNORE_FILE), line: i + 1 }); });
-            const kept = lines.filter((line) => globstarsIn(line) <= MAX_GLOBSTARS);
-            // Plain patterns are matched a folder at a time, each folder once (see ignore-rules.ts):
-            // the package's expressions slow down on deep paths with two `**`.
-            patterns = plainRules(kept) ?? ignore().add(kept);
+            patterns = ignore().add(lines.filter((line) => globstarsIn(line) <= MAX_GLOBSTARS));
           }
         } finally {
           closeSync(fd);
