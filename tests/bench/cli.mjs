@@ -1,6 +1,7 @@
 // Benchmark of the command line on a generated corpus of 10,000 invented notes (5 to 35
 // timepoints each). Prints figures; asserts nothing. `npm run bench:cli` (builds first).
 //   analysis in process   checkNote over every note (parse + timeline + derived values + checks)
+//   parse alone           parseNote over every note: the syntax tree, nothing derived or checked
 //   JSON.parse floor      the same notes expressed as JSON (timepoints with their values), parsed
 //   scan floors           no analysis at all: one pass over every character of the notes, and
 //                         one small object per word; what any reader of the text written in
@@ -66,11 +67,13 @@ const objectPerWord = () => {
 };
 
 let ours = Infinity;
+let parsed = Infinity;
 let floor = Infinity;
 let scan = Infinity;
 let objects = Infinity;
 for (let r = 0; r < 3; r++) {
   ours = Math.min(ours, time(() => { for (const t of texts) core.checkNote(t); }));
+  parsed = Math.min(parsed, time(() => { for (const t of texts) sink += core.parseNote(t).lines.length; }));
   floor = Math.min(floor, time(() => { for (const j of jsons) JSON.parse(j); }));
   scan = Math.min(scan, time(scanCharacters));
   objects = Math.min(objects, time(objectPerWord));
@@ -102,6 +105,7 @@ console.log(`${'measure'.padEnd(40)} ${'seconds'.padStart(8)} ${'notes/s'.padSta
 const line = (what, s, bytes) => console.log(`${what.padEnd(40)} ${s.toFixed(2).padStart(8)} ${(NOTES / s).toFixed(0).padStart(10)} ${mb(bytes / s).toFixed(2).padStart(8)}`);
 line('analysis in process (checkNote)', ours, noteBytes);
 line('  its first pass (cold, as a run is)', cold, noteBytes);
+line('  parse alone (parseNote, no analysis)', parsed, noteBytes);
 line('JSON.parse of the same corpus (floor)', floor, jsonBytes);
 line('  each character looked at once (JS)', scan, noteBytes);
 line('  one object per word (JS)', objects, noteBytes);
@@ -109,4 +113,5 @@ line('pneumark check (whole corpus, wall)', check.s, noteBytes);
 line('pneumark check --jobs 0 (one thread)', checkOneThread.s, noteBytes);
 line('pneumark export --format csv (wall)', exportCsv.s, noteBytes);
 console.log(`analysis / JSON.parse time ratio: ${(ours / floor).toFixed(1)}× (target ≤ 3×); check of the corpus: ${check.s.toFixed(1)} s (target < 10 s)`);
+console.log(`parse alone / JSON.parse: ${(parsed / floor).toFixed(1)}× (the syntax tree with its ranges, nothing derived or checked)`);
 console.log(`floors / JSON.parse, nothing analysed: one look at each character ${(scan / floor).toFixed(2)}×, one object per word ${(objects / floor).toFixed(2)}×`);
