@@ -155,9 +155,22 @@ export function exceedsBytes(text: string, maxBytes: number): boolean {
   return Buffer.byteLength(text, 'utf8') > maxBytes;
 }
 
-/** The diagnostic of a note whose analysis outgrew the heap budget, at its first line. */
-function refusedDiagnostic(message: string): Diagnostic {
-  return { range: { start: { line: 0, character: 0 }, end: { line: 0, character: 0 } }, severity: 3, source: 'pneumark', code: 'too-costly', message };
+/**
+ * Why a note is not analysed, as its diagnostic says: `too-large` over `maxNoteSizeKb`,
+ * `too-costly` when its analysis outgrew (or would outgrow) the heap budget.
+ */
+interface Refusal {
+  readonly code: 'too-large' | 'too-costly';
+  readonly message: string;
+}
+
+/** The diagnostic of a note that is not analysed, at its first line. */
+function refusedDiagnostic({ code, message }: Refusal): Diagnostic {
+  return { range: { start: { line: 0, character: 0 }, end: { line: 0, character: 0 } }, severity: 3, source: 'pneumark', code, message };
+}
+
+function tooCostly(message: string): Refusal {
+  return { code: 'too-costly', message };
 }
 
 export function startServer(connection: Connection, collector: IdleCollector = new IdleCollector()): void {
@@ -415,13 +428,15 @@ export function startServer(connection: Connection, collector: IdleCollector = n
   }
 
   /**
-   * Why the note's text is not analysed: over `maxNoteSizeKb`, or as long as a version whose
-   * analysis outgrew the heap budget; null when it is analysed.
+   * Why the note's text is not analysed: over `maxNoteSizeKb`, as long as a version whose analysis
+   * outgrew the heap budget, or with a line too long to read within it; null when it is analysed.
+   * The one rule of the analysis, the requests about the note and the trend view alike.
    */
-  function notAnalysed(text: string, state: NoteState): string | null {
-    if (exceedsBytes(text, state.settings.maxNoteBytes)) return tooLargeMessage(text, state.settings.maxNoteBytes);
-    if (state.refused && text.length >= state.refused.from) return state.refused.message;
-    return tooLongLine(text, state);
+  function notAnalysed(text: string, state: NoteState): Refusal | null {
+    if (exceedsBytes(text, state.settings.maxNoteBytes)) return { code: 'too-large', message: tooLargeMessage(text, state.settings.maxNoteBytes) };
+    if (state.refused && text.length >= state.refused.from) return tooCostly(state.refused.message);
+    const longLine = tooLongLine(text, state);
+    return longLine === null ? null : tooCostly(longLine);
   }
 
   /**
@@ -469,12 +484,12 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     const read = state.session.readLength;
     state.session = new NoteSession(state.settings.analysis);
     if (text.length <= SMALL_NOTE_CHARS) {
-      publish(uri, state, version, started, [refusedDiagnostic(heapFullMessage())]);
+      publish(uri, state, version, started, [refusedDiagnostic(tooCostly(heapFullMessage()))]);
       collector.collectNow();
       return true;
     }
     state.refused = { from: Math.min(read, text.length), message: tooCostlyMessage(read, text.length) };
-    publish(uri, state, version, started, [refusedDiagnostic(state.refused.message)]);
+    publish(uri, state, version, started, [refusedDiagnostic(tooCostly(state.refused.message))]);
     collector.collectNow();
     return true;
   }
@@ -494,28 +509,13 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     const version = doc.version;
     const started = performance.now();
     const text = doc.getText();
-    if (exceedsBytes(text, state.settings.maxNoteBytes)) {
-      publish(uri, state, version, started, [{
-        range: { start: { line: 0, character: 0 }, end: { line: 0, character: 0 } },
-        severity: 3,
-        source: 'pneumark',
-        code: 'too-large',
-        message: tooLargeMessage(text, state.settings.maxNoteBytes),
-      }]);
+    const refusal = notAnalysed(text, state);
+    if (refusal !== null) {
+      publish(uri, state, version, started, [refusedDiagnostic(refusal)]);
       return;
     }
-    const longLine = tooLongLine(text, state);
-    if (longLine !== null) {
-      publish(uri, state, version, started, [refusedDiagnostic(longLine)]);
-      return;
-    }
-    if (state.refused) {
-      if (text.length >= state.refused.from) {
-        publish(uri, state, version, started, [refusedDiagnostic(state.refused.message)]);
-        return;
-      }
-      state.refused = null;
-    }
+    // Shorter than the version whose analysis outgrew the budget: read again.
+    state.refused = null;
     // The first step is small (the code may not be compiled yet); then steps are sized to last
     // about STEP_BUDGET_MS each, from how long the last one took.
     const steps = state.session.steps(text, FIRST_STEP_LINES);
@@ -751,7 +751,7 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     const text = doc.getText();
     // A note not analysed (too large, or too costly) says so, rather than reading as a note without timepoints.
     const why = notAnalysed(text, state);
-    if (why !== null) return { uri: p.uri, version: doc.version, points: [], notAnalysed: why };
+    if (why !== null) return { uri: p.uri, version: doc.version, points: [], notAnalysed: why.message };
     const result = resultFor(doc, state);
     return { uri: p.uri, version: doc.version, points: result ? trendPoints(result) : [] };
   })(params)));
