@@ -10,8 +10,11 @@
 // bilevel support, which raises the pressure on each breath; CPAP holds one pressure and has none
 // (common practice, no source).
 import { describe, expect, it } from 'vitest';
+import { noninvasiveSupport } from '../../server/src/core/analysis/noninvasive-support';
 import { checkNote } from '../../server/src/core/check-note';
 import { toFhirBundle } from '../../server/src/core/export';
+import { loincMismatch } from '../../server/src/core/export/fhir';
+import { fieldById } from '../../server/src/core/fields/registry';
 import { hoverAt } from '../../server/src/core/service';
 import { run } from '../../server/src/cli/main';
 import { memoryIo } from '../helpers/memory-io';
@@ -61,14 +64,14 @@ describe('an IPAP without a device or an EPAP (a bilevel setting): NIV everywher
     expect(d.derived.find((v) => v.id === 'mechanical_power')).toBeUndefined();
     expect(d.missing.find((m) => m.id === 'mechanical_power')).toBeUndefined();
     const na = d.notApplicable.find((n) => n.id === 'mechanical_power');
-    expect(na?.reason).toMatch(/^the simplified equation is for volume control with a constant flow; under NIV the breaths are pressure-supported/);
+    expect(na?.reason).toMatch(/^the simplified equation is for volume control with a constant flow, the airway pressure rising in a straight line through inspiration; under NIV the breaths are pressure-supported/);
     expect(na?.explained).toBe(true);
   });
 
   it('the hover of the peak pressure gives that reason', () => {
     const { result, position } = noteAt(IPAP_ALONE.replace('peak 18', 'peak 1|8'));
     const md = hoverAt(result, position)?.markdown ?? '';
-    expect(md).toContain('Not worked out here: MP — the simplified equation is for volume control with a constant flow; under NIV the breaths are pressure-supported');
+    expect(md).toContain('Not worked out here: MP — the simplified equation is for volume control with a constant flow, the airway pressure rising in a straight line through inspiration; under NIV the breaths are pressure-supported');
     expect(md).not.toMatch(/add peep to get[^\n]*\bMP\b/);
   });
 
@@ -76,7 +79,7 @@ describe('an IPAP without a device or an EPAP (a bilevel setting): NIV everywher
     const io = memoryIo({ stdin: IPAP_ALONE });
     await run(['show', '-'], io);
     const shown = io.out();
-    expect(shown).toMatch(/\n {2}n\/a {6}MP: the simplified equation is for volume control with a constant flow; under NIV the breaths are pressure-supported/);
+    expect(shown).toMatch(/\n {2}n\/a {6}MP: the simplified equation is for volume control with a constant flow, the airway pressure rising in a straight line through inspiration; under NIV the breaths are pressure-supported/);
     expect(shown).not.toMatch(/missing +add peep to get [^\n]*\bMP\b/);
   });
 
@@ -112,5 +115,41 @@ describe('the timeline, mechanical power and the FHIR export agree on every oxyg
     expect(powerReason(withReadings('oxygen ipap 12, level 8, fio2 0.4'))).toBe('NIV');
     expect(powerReason(withReadings('oxygen level 8, fio2 0.4'))).toBe('CPAP');
     expect(powerReason(withReadings('oxygen fio2 0.4'))).toBeNull();
+  });
+});
+
+describe('the rule itself (noninvasiveSupport)', () => {
+  const held = (...ids: string[]) => new Set(ids);
+  it('a device named decides, whatever pressures are written beside it', () => {
+    expect(noninvasiveSupport('niv', held())).toBe('niv');
+    expect(noninvasiveSupport('cpap', held('ipap', 'epap'))).toBe('cpap');
+    for (const device of ['mask', 'hfnc', 'cannula', 'venturi', 'reservoir', 'room air']) {
+      expect(noninvasiveSupport(device, held('ipap', 'epap', 'cpap_level')), device).toBeNull();
+    }
+  });
+
+  it('with no device: IPAP or EPAP is NIV (IPAP alone too: a bilevel setting), else a CPAP level is CPAP, else none', () => {
+    expect(noninvasiveSupport(null, held('ipap'))).toBe('niv');
+    expect(noninvasiveSupport(null, held('epap'))).toBe('niv');
+    expect(noninvasiveSupport(null, held('ipap', 'epap'))).toBe('niv');
+    expect(noninvasiveSupport(null, held('ipap', 'cpap_level'))).toBe('niv');
+    expect(noninvasiveSupport(null, held('epap', 'cpap_level'))).toBe('niv');
+    expect(noninvasiveSupport(null, held('cpap_level'))).toBe('cpap');
+    expect(noninvasiveSupport(null, held('fio2', 'o2_flow'))).toBeNull();
+    expect(noninvasiveSupport(null, held())).toBeNull();
+  });
+
+  it('asks nothing of the pressures where a device is named', () => {
+    const asked: string[] = [];
+    noninvasiveSupport('mask', { has: (id) => (asked.push(id), true) });
+    expect(asked).toEqual([]);
+  });
+
+  it('the export names the support when it refuses the code of a set tidal volume', () => {
+    const vt = fieldById('vt')!;
+    const under = (support: 'niv' | 'cpap' | null) => loincMismatch(vt.loinc!, vt, 'vent', { key: 'vt', device: null, mode: null, support });
+    expect(under('niv')).toBe('20112-9 is a set tidal volume, and NIV sets none');
+    expect(under('cpap')).toBe('20112-9 is a set tidal volume, and CPAP sets none');
+    expect(under(null)).toBeNull();
   });
 });
