@@ -153,3 +153,44 @@ describe('the rule itself (noninvasiveSupport)', () => {
     expect(under(null)).toBeNull();
   });
 });
+
+// Driving pressure Pplat − PEEP (Amato MBP et al., "Driving pressure and survival in the acute
+// respiratory distress syndrome", NEJM 2015;372:747–755), static compliance VT ÷ (Pplat − PEEP) and
+// dynamic compliance VT ÷ (Ppeak − PEEP) (standard respiratory mechanics, common practice, no
+// source) take the end-expiratory pressure in force: EPAP under NIV, the CPAP level under CPAP.
+// Where it is missing, what to add is that line's key: a `peep` would go on a vent line, and a vent
+// line with a setting ends the non-invasive support (and with it the pressures read under it).
+describe('what to add for the end-expiratory pressure follows the support in force', () => {
+  const needsOf = (text: string, id: string) => derivation(text).missing.find((m) => m.id === id)?.needs;
+  const mechanics = ['driving_pressure', 'compliance_static', 'compliance_dynamic'];
+
+  for (const [oxygen, need] of [
+    ['oxygen ipap 12, fio2 0.4', 'epap (on the oxygen line)'],
+    ['oxygen niv ipap 14, fio2 0.4', 'epap (on the oxygen line)'],
+    ['oxygen bilevel fio2 0.4', 'epap (on the oxygen line)'],
+    ['oxygen cpap, fio2 0.4', 'level (on the oxygen line)'],
+    ['oxygen mask, fio2 0.4', 'peep'],
+  ] as const) {
+    it(`${oxygen}: add ${need}`, () => {
+      const text = withReadings(oxygen);
+      for (const id of mechanics) expect(needsOf(text, id), id).toEqual([need]);
+    });
+  }
+
+  it('`show` says so for an IPAP alone, and following it gives the values: ΔP 16 − 5 = 11 cmH2O', async () => {
+    const io = memoryIo({ stdin: IPAP_ALONE });
+    await run(['show', '-'], io);
+    expect(io.out()).toContain('missing  add epap (on the oxygen line) to get ΔP, Cstat, Cdyn');
+    const d = derivation(withReadings('oxygen ipap 12, epap 5, fio2 0.4'));
+    expect(d.derived.find((v) => v.id === 'driving_pressure')?.value).toBe(11);
+    // Cstat 450 ÷ (16 − 5), Cdyn 450 ÷ (18 − 5).
+    expect(d.derived.find((v) => v.id === 'compliance_static')?.value).toBeCloseTo(450 / 11, 9);
+    expect(d.derived.find((v) => v.id === 'compliance_dynamic')?.value).toBeCloseTo(450 / 13, 9);
+    expect(d.missing.filter((m) => mechanics.includes(m.id))).toEqual([]);
+  });
+
+  it('on the ventilator, and with no therapy named, peep as before', () => {
+    expect(needsOf(`${PATIENT}@ 08:00\nvent mode VC, vt 450, rate 20, fio2 0.4\nvent plateau 16, peak 18`, 'driving_pressure')).toEqual(['peep']);
+    expect(needsOf(`${PATIENT}@ 08:00\nvent vt 450, plateau 16, peak 18`, 'compliance_static')).toEqual(['peep']);
+  });
+});
