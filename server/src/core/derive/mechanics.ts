@@ -15,7 +15,7 @@ import {
   ventilatoryRatio,
   vtPerKgPbw,
 } from '../physiology';
-import { noninvasiveSupport, type NoninvasiveSupport } from '../analysis/noninvasive-support';
+import type { NoninvasiveSupport } from '../analysis/noninvasive-support';
 import { defineDerived, withDecimals, type Term, type ValueExtras } from './context';
 import { decimalsAgainst } from '../util/format';
 
@@ -119,7 +119,7 @@ export const drivingPressureDef = defineDerived({
     const hfov = c.oscillationBreath();
     if (hfov) return hfov;
     const peep = c.peepLike();
-    if (!peep) return c.missing([peep, 'peep']);
+    if (!peep) return c.missing([peep, c.peepNeed()]);
     const dp = drivingPressure(plat.value, peep.value);
     // Shown beside the 15 cmH2O flag (PN405): 15.4 as 15.4, not as 15 next to "above 15".
     const decimals = dp === null ? undefined : decimalsAgainst(dp, 0, DRIVING_PRESSURE_FLAG_CMH2O);
@@ -145,7 +145,7 @@ export const complianceStaticDef = defineDerived({
     const hfov = c.oscillationBreath();
     if (hfov) return hfov;
     const peep = c.peepLike();
-    if (!vt || !peep) return c.missing([vt, 'vt'], [peep, 'peep']);
+    if (!vt || !peep) return c.missing([vt, 'vt'], [peep, c.peepNeed()]);
     return c.value(complianceStatic(vt.value, plat.value, peep.value), [vt, plat, peep], formulaExtras('{VT} ÷ ({Pplat} − {PEEP})', peep));
   },
 });
@@ -167,7 +167,7 @@ export const complianceDynamicDef = defineDerived({
     const hfov = c.oscillationBreath();
     if (hfov) return hfov;
     const peep = c.peepLike();
-    if (!vt || !peep) return c.missing([vt, 'vt'], [peep, 'peep']);
+    if (!vt || !peep) return c.missing([vt, 'vt'], [peep, c.peepNeed()]);
     return c.value(complianceDynamic(vt.value, peak.value, peep.value), [vt, peak, peep], formulaExtras('{VT} ÷ ({Ppeak} − {PEEP})', peep));
   },
 });
@@ -218,7 +218,7 @@ export const mechanicalPower = defineDerived({
     if (mode && mode.word !== MECHANICAL_POWER_MODE) return { kind: 'na', reason: notVolumeControl(mode.word), explained: true };
     // Under NIV or CPAP of an oxygen line no ventilator mode is in force, and no `peep` either (EPAP
     // or the CPAP level is the end-expiratory pressure): the breaths are not volume-controlled.
-    const support = mode ? null : noninvasiveSupport(c.word('device')?.word ?? null, c.timepoint.values);
+    const support = mode ? null : c.noninvasiveSupport();
     if (support !== null) return { kind: 'na', reason: UNDER_SUPPORT[support], explained: true };
     if (!rr) {
       const withheld = c.zeroSetRate();
