@@ -265,7 +265,7 @@ describe('codes that fit the value', () => {
     const field = fieldById('hco3_serum')!;
     const bicarbonate = field.loinc!;
     const totalCo2 = field.loincByKey!['tco2']!;
-    const written = (key: string) => ({ key, device: null, mode: null });
+    const written = (key: string) => ({ key, device: null, mode: null, support: null });
     expect(loincMismatch(bicarbonate, field, 'labs', written('tco2'))).toBe('1963-8 is bicarbonate, the value was written as total CO2 (tco2)');
     expect(loincMismatch(totalCo2, field, 'labs', written('hco3'))).toBe('2028-9 is total CO2, the value was written as hco3');
     expect(loincMismatch(totalCo2, field, 'labs', written('tco2'))).toBeNull();
@@ -287,7 +287,7 @@ describe('codes that fit the value', () => {
     for (const f of FIELDS) {
       for (const section of f.sections as readonly SectionId[]) {
         for (const key of [null, ...f.aliases]) {
-          const loinc = fhirLoinc(f, section, { key, device: null, mode: null });
+          const loinc = fhirLoinc(f, section, { key, device: null, mode: null, support: null });
           if (!loinc) continue;
           if (loinc.display.includes('[Moles/volume]')) expect(f.unit, f.id).toBe('mmol/L');
           if (loinc.display.includes('[Mass/volume]')) expect(f.unit, f.id).toBe('g/dL');
@@ -365,7 +365,7 @@ describe('a ventilated note (codes of the MII ICU module)', () => {
     expect(byId(b, 'obs-2-insp-flow')?.code).toEqual({ text: 'Inspiratory flow' });
     expect(byId(b, 'obs-2-insp-flow')?.valueQuantity?.value).toBe(45);
     const flow = fieldById('insp_flow')!;
-    const under = (mode: string) => loincMismatch(flow.loinc!, flow, 'vent', { key: 'flow', device: null, mode });
+    const under = (mode: string) => loincMismatch(flow.loinc!, flow, 'vent', { key: 'flow', device: null, mode, support: null });
     for (const mode of ['PC', 'PRVC', 'PS', 'APRV', 'CPAP', 'HFOV']) expect(under(mode), mode).toBe(`76275-7 is a set inspiratory flow, and ${mode} sets none`);
     for (const mode of ['VC', 'SIMV']) expect(under(mode), mode).toBeNull();
     expect(loincMismatch(flow.loinc!, flow, 'vent')).toBeNull(); // no mode known: a flow on a vent line is set

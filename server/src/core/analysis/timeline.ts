@@ -38,6 +38,7 @@ import type { ItemNode, LineNode, NoteTree, SectionLine, Span, TimepointLine } f
 import { MAX_DAY } from '../syntax/parser';
 import { OSCILLATION_MODE } from '../physiology/mechanics';
 import { barometricFromAltitude } from './ambient';
+import { noninvasiveSupport } from './noninvasive-support';
 import { moveLineNames, shiftedLine, type InputValue, type LineShift, type Origin, type StatedValue, type Timepoint, type TimepointTime, type ValuesInForce } from './model';
 import type { ReadIssue } from './read-issues';
 import { readItem, type ReadContext } from './read-value';
@@ -710,15 +711,13 @@ function asSettings(stated: (StatedValue | undefined)[], from: number, to: numbe
   for (let k = from; k < to; k++) if (stated[k]!.fieldId === id && stated[k]!.hereOnly) stated[k] = new ReadAs(stated[k]!, false);
 }
 
-/** Oxygen-line devices that give breaths and measure their volume (common practice, no source). */
-const BREATH_DEVICES: readonly string[] = ['niv', 'cpap'];
-
-/** Whether the oxygen line held is non-invasive support that gives breaths (NIV or CPAP, by its device or its pressures). */
+/**
+ * Whether the oxygen line held is non-invasive support that gives breaths and measures their
+ * volume (NIV or CPAP, by its device or its pressures: `noninvasiveSupport`).
+ */
 function givesBreaths(oxygen: HeldMap): boolean {
   if (oxygen.size === 0) return false;
-  const device = oxygen.get('device')?.stated.word;
-  if (device !== undefined && device !== null) return BREATH_DEVICES.includes(device);
-  return oxygen.has('ipap') || oxygen.has('epap') || oxygen.has('cpap_level');
+  return noninvasiveSupport(oxygen.get('device')?.stated.word ?? null, oxygen) !== null;
 }
 
 /**

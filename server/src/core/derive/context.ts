@@ -7,6 +7,7 @@ import type { InputValue, Timepoint, ValuesInForce } from '../analysis/model';
 import type { SectionId } from '../fields/sections';
 import { fieldById } from '../fields/registry';
 import { displayUnit } from '../analysis/read-value';
+import { noninvasiveSupport, type NoninvasiveSupport } from '../analysis/noninvasive-support';
 import type { Settings } from '../settings';
 import { formatNumber, wordList } from '../util/format';
 import { describeOrigin, kpaResolutionMmhg } from '../present';
@@ -382,6 +383,21 @@ export class DeriveContext {
     return this.field('peep', 'PEEP') ?? this.field('epap', 'EPAP') ?? this.field('cpap_level', 'CPAP');
   }
 
+  /** The non-invasive support of the oxygen line in force (`noninvasiveSupport`), or null. */
+  noninvasiveSupport(): NoninvasiveSupport | null {
+    return noninvasiveSupport(this.word('device')?.word ?? null, this.timepoint.values);
+  }
+
+  /**
+   * What to add for the end-expiratory pressure `peepLike` reads, where none is in force: under NIV
+   * or CPAP of an oxygen line, the EPAP or the CPAP level on that line (a `peep` would go on a vent
+   * line, and a vent line with a setting ends the support); else `peep`.
+   */
+  peepNeed(): string {
+    const support = this.noninvasiveSupport();
+    return support === null ? 'peep' : END_EXPIRATORY_NEED[support];
+  }
+
   value(value: number | null, terms: readonly (Term | null)[], extra: ValueExtras = NO_EXTRAS): Outcome {
     if (value === null || !Number.isFinite(value)) return NOT_IN_DOMAIN;
     return { kind: 'value', value, terms: withoutNulls(terms), extras: extra };
@@ -460,6 +476,9 @@ function usesCarried(terms: readonly Term[], c: DeriveContext): boolean {
 const VENT_SETTINGS: readonly string[] = ['mode', 'vt', 'vent_rate', 'peep', 'pressure_support', 'amplitude'];
 /** Settings of an oxygen line besides its device and FiO2: one in force means an oxygen line is. */
 const OXYGEN_SETTINGS: readonly string[] = ['o2_flow', 'ipap', 'epap', 'cpap_level'];
+
+/** The key of the end-expiratory pressure, with its line, under each non-invasive support (`peepNeed`). */
+const END_EXPIRATORY_NEED: Readonly<Record<NoninvasiveSupport, string>> = { niv: 'epap (on the oxygen line)', cpap: 'level (on the oxygen line)' };
 
 const NOT_IN_DOMAIN: Outcome = { kind: 'na', reason: 'the inputs are outside the range where the formula holds' };
 const IN_HFOV: Outcome = { kind: 'na', reason: 'not worked out in HFOV: its rate is an oscillation frequency, and tidal volume × rate is not its ventilation' };

@@ -15,6 +15,7 @@ import {
   ventilatoryRatio,
   vtPerKgPbw,
 } from '../physiology';
+import type { NoninvasiveSupport } from '../analysis/noninvasive-support';
 import { defineDerived, withDecimals, type Term, type ValueExtras } from './context';
 import { decimalsAgainst } from '../util/format';
 
@@ -118,7 +119,7 @@ export const drivingPressureDef = defineDerived({
     const hfov = c.oscillationBreath();
     if (hfov) return hfov;
     const peep = c.peepLike();
-    if (!peep) return c.missing([peep, 'peep']);
+    if (!peep) return c.missing([peep, c.peepNeed()]);
     const dp = drivingPressure(plat.value, peep.value);
     // Shown beside the 15 cmH2O flag (PN405): 15.4 as 15.4, not as 15 next to "above 15".
     const decimals = dp === null ? undefined : decimalsAgainst(dp, 0, DRIVING_PRESSURE_FLAG_CMH2O);
@@ -144,7 +145,7 @@ export const complianceStaticDef = defineDerived({
     const hfov = c.oscillationBreath();
     if (hfov) return hfov;
     const peep = c.peepLike();
-    if (!vt || !peep) return c.missing([vt, 'vt'], [peep, 'peep']);
+    if (!vt || !peep) return c.missing([vt, 'vt'], [peep, c.peepNeed()]);
     return c.value(complianceStatic(vt.value, plat.value, peep.value), [vt, plat, peep], formulaExtras('{VT} ÷ ({Pplat} − {PEEP})', peep));
   },
 });
@@ -166,7 +167,7 @@ export const complianceDynamicDef = defineDerived({
     const hfov = c.oscillationBreath();
     if (hfov) return hfov;
     const peep = c.peepLike();
-    if (!vt || !peep) return c.missing([vt, 'vt'], [peep, 'peep']);
+    if (!vt || !peep) return c.missing([vt, 'vt'], [peep, c.peepNeed()]);
     return c.value(complianceDynamic(vt.value, peak.value, peep.value), [vt, peak, peep], formulaExtras('{VT} ÷ ({Ppeak} − {PEEP})', peep));
   },
 });
@@ -217,8 +218,8 @@ export const mechanicalPower = defineDerived({
     if (mode && mode.word !== MECHANICAL_POWER_MODE) return { kind: 'na', reason: notVolumeControl(mode.word), explained: true };
     // Under NIV or CPAP of an oxygen line no ventilator mode is in force, and no `peep` either (EPAP
     // or the CPAP level is the end-expiratory pressure): the breaths are not volume-controlled.
-    const noninvasive = mode ? null : noninvasiveTherapy(c.word('device')?.word ?? null, c.input('epap') !== null, c.input('cpap_level') !== null);
-    if (noninvasive) return { kind: 'na', reason: noninvasive, explained: true };
+    const support = mode ? null : c.noninvasiveSupport();
+    if (support !== null) return { kind: 'na', reason: UNDER_SUPPORT[support], explained: true };
     if (!rr) {
       const withheld = c.zeroSetRate();
       if (withheld) return withheld;
@@ -243,16 +244,11 @@ const UNDER_NIV = CONSTANT_FLOW_ONLY + 'under NIV the breaths are pressure-suppo
 const UNDER_CPAP = CONSTANT_FLOW_ONLY + 'under CPAP the patient breathes spontaneously at one constant pressure, and the device gives no volume-controlled breath for the equation to describe';
 
 /**
- * Why the simplified mechanical power is not worked out under the non-invasive therapy of an
- * oxygen line (the device `niv` or `cpap`, or with none named, an EPAP or a CPAP level in force);
- * null when none is in force.
+ * Why the simplified mechanical power is not worked out under the non-invasive support of an
+ * oxygen line (the one rule of `noninvasiveSupport`: the device `niv` or `cpap`, or with none named,
+ * an IPAP or an EPAP for NIV, a CPAP level for CPAP).
  */
-function noninvasiveTherapy(device: string | null, epap: boolean, cpapLevel: boolean): string | null {
-  if (device === 'niv') return UNDER_NIV;
-  if (device === 'cpap') return UNDER_CPAP;
-  if (device !== null) return null;
-  return epap ? UNDER_NIV : cpapLevel ? UNDER_CPAP : null;
-}
+const UNDER_SUPPORT: Readonly<Record<NoninvasiveSupport, string>> = { niv: UNDER_NIV, cpap: UNDER_CPAP };
 
 export const mechanicalPowerSurrogateDef = defineDerived({
   id: 'mechanical_power_surrogate',

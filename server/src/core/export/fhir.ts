@@ -35,7 +35,9 @@
  * - the tidal volume setting code (20112-9) never on a tidal volume written under a mode that sets
  *   none (PC, PS, APRV, CPAP, HFOV: it was delivered), nor the inspiratory flow setting code
  *   (76275-7) on a flow written under a mode that sets no flow (PC, PRVC, PS, APRV, CPAP, HFOV: the
- *   flow follows the pressure, so the value was measured);
+ *   flow follows the pressure, so the value was measured), nor on a tidal volume measured under
+ *   NIV or CPAP of an oxygen line (`noninvasiveSupport`: by its device, or with none named, its
+ *   pressures; the rule by which the timeline reads that volume as measured);
  * - a code whose name says `setting` never on a reading (plateau, peak, mean airway pressure,
  *   minute volume, end-tidal CO2), nor one measured `--on ventilator` on a setting.
  * A value whose field has no code, or whose code does not fit, is still exported, with `code.text`
@@ -86,6 +88,7 @@
  */
 import type { NoteResult } from '../check-note';
 import type { InputValue, StatedValue, Timepoint } from '../analysis/model';
+import { noninvasiveSupport, SUPPORT_NAMES, type NoninvasiveSupport } from '../analysis/noninvasive-support';
 import type { DerivedValue } from '../derive/model';
 import { derivedValueOf } from '../derive/registry';
 import { FIELDS, loincFor, type FieldDef, type LoincCode } from '../fields/registry';
@@ -214,9 +217,11 @@ export interface WrittenAs {
   readonly device: string | null;
   /** The ventilator mode in force at the timepoint (`VC`, `PS`, …). */
   readonly mode: string | null;
+  /** The non-invasive support in force at the timepoint (`noninvasiveSupport`: by the device, or with none named, its pressures). */
+  readonly support: NoninvasiveSupport | null;
 }
 
-const NOTHING_MORE: WrittenAs = { key: null, device: null, mode: null };
+const NOTHING_MORE: WrittenAs = { key: null, device: null, mode: null, support: null };
 
 /**
  * Settings some ventilator modes do not set, with those modes: a value written under one of them was
@@ -244,7 +249,7 @@ export function loincMismatch(loinc: LoincCode, field: FieldDef, section: Sectio
   // A volume or a flow written under a mode that sets none was delivered, so it was measured.
   const notSet = NOT_SET_UNDER.get(field.id);
   // Under NIV or CPAP with no ventilator mode, a tidal volume is one the device measured (a vent line of readings).
-  if (notSet && /\bsetting\b/.test(name) && written.mode === null && (device === 'niv' || device === 'cpap')) return `${loinc.code} is a set ${notSet.what}, and ${device === 'niv' ? 'NIV' : 'CPAP'} sets none`;
+  if (notSet && /\bsetting\b/.test(name) && written.mode === null && written.support !== null) return `${loinc.code} is a set ${notSet.what}, and ${SUPPORT_NAMES[written.support]} sets none`;
   if (notSet && /\bsetting\b/.test(name) && written.mode !== null && notSet.modes.has(written.mode)) return `${loinc.code} is a set ${notSet.what}, and ${written.mode} sets none`;
   // A high-flow device's flow is the total gas flow (air and oxygen blended to the FiO2), not the oxygen flow.
   if (/^Inhaled oxygen flow rate\b/.test(name) && device === 'hfnc') return `${loinc.code} is the oxygen flow, the value is the total gas flow of a high-flow device`;
@@ -370,12 +375,14 @@ interface Place {
   readonly device: string | null;
   /** The ventilator mode in force there (a tidal volume is set only in some). */
   readonly mode: string | null;
+  /** The non-invasive support in force there (which sets no tidal volume). */
+  readonly support: NoninvasiveSupport | null;
 }
 
 /** The Observation of one stated value; null when the field is not exported or has no usable number. */
 function fieldObservation(field: FieldDef, input: InputValue, place: Place): Omit<FhirObservation, 'id'> | null {
   // A ventilator's FiO2, a blood gas sodium, a value written as tco2 have codes of their own; a code that does not fit is left out.
-  const loinc = fhirLoinc(field, input.stated.section, { key: input.stated.item.keyName, device: place.device, mode: place.mode });
+  const loinc = fhirLoinc(field, input.stated.section, { key: input.stated.item.keyName, device: place.device, mode: place.mode, support: place.support });
   const unitId = input.stated.unit;
   if (!isObservedField(field) || !input.stated.usable || unitId === null) return null;
   const base = {
@@ -429,7 +436,7 @@ export function toFhirBundle(path: string, result: NoteResult, options: FhirOpti
   // timepoint has replaced the header's. Stated twice there, the later one (PN206).
   const header = new Map<string, InputValue>();
   for (const s of result.analysis.timeline.header) header.set(s.fieldId, { stated: s, origin: { kind: 'header', line: s.line, span: s.item.span } });
-  const headerPlace: Place = { key: 'header', effective: null, note: 'Pneumark note header (describes the patient for the whole note)', device: null, mode: null };
+  const headerPlace: Place = { key: 'header', effective: null, note: 'Pneumark note header (describes the patient for the whole note)', device: null, mode: null, support: null };
   for (const field of FIELDS) {
     const input = header.get(field.id);
     const resource = input ? fieldObservation(field, input, headerPlace) : null;
@@ -448,7 +455,8 @@ export function toFhirBundle(path: string, result: NoteResult, options: FhirOpti
       const input = tp.values.get(id);
       return input?.stated.usable ? input.stated.word : null;
     };
-    const place: Place = { key: String(tp.index), effective, note: timepointNote(tp, writtenLabel(result, tp), options), device: word('device'), mode: word('mode') };
+    const device = word('device');
+    const place: Place = { key: String(tp.index), effective, note: timepointNote(tp, writtenLabel(result, tp), options), device, mode: word('mode'), support: noninvasiveSupport(device, tp.values) };
     const repeated = repeatedFields(tp);
     for (const field of FIELDS) {
       const input = tp.values.get(field.id);
