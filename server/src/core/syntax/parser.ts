@@ -1620,16 +1620,8 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
           const number = SCANNED.value;
           const comma = SCANNED.decimalComma;
           i++;
-          const glued = next.start + length;
-          if (glued < next.end && source.charCodeAt(glued) === 0x28 /* ( */ && bracketAt(source, glued, limit, section) !== NO_BRACKET) {
-            // `hr 80(93)`: a number in brackets glued to a value that is no blood pressure (not its unit).
-            const end = chunksThrough(chunks, i, BRACKET.end);
-            issues.push(misplacedBracketIssue(source, glued, end));
-            i += BRACKET_CHUNKS;
-          } else {
-            unit = unitAfter(gluedUnit(next, length), chunks, i, section, source);
-            i += UNIT_CHUNKS;
-          }
+          unit = unitAfter(gluedUnit(next, length), chunks, i, section, source);
+          i += UNIT_CHUNKS;
           items[count++] = numberItem(key.text, keyName, null, field, source, number, next.start + length, comma, unit, key.start);
           if (field?.kind === 'pair') {
             // `bp 120`: a key that takes two numbers with one; nothing would be read from it.
