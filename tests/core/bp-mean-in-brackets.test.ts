@@ -162,6 +162,16 @@ describe('the mean in brackets, written with a unit, glued or with blanks', () =
     expect(span).toMatchObject({ start: { character: 17 }, end: { character: 25 } });
   });
 
+  it('offers to close an unclosed bracket, which then reads as the mean', () => {
+    const text = 'vitals bp 120/80 (93 mmHg, hr 80';
+    const [issue] = meanLine(text).issues;
+    const edit = issue!.fixes[0]!.edits[0]!;
+    const fixed = text.slice(0, edit.span.start) + edit.newText + text.slice(edit.span.end);
+    expect(fixed).toBe('vitals bp 120/80 (93 mmHg), hr 80');
+    expect(meanLine(fixed).issues).toEqual([]);
+    expect(valuesOf(`@ 08:00\n${fixed}`).get('mean_bp')?.stated.value).toBe(93);
+  });
+
   it('keeps brackets after anything but a blood pressure an error that says they follow a blood pressure only', () => {
     for (const line of ['vitals hr 80 (93)', 'vitals hr 80 (93 mmHg)', 'vitals bp 120/80, (93)', 'vitals hr 80 ( 93 )', 'vitals (93)']) {
       const result = checkNote(`@ 08:00\n${line}`);

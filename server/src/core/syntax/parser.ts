@@ -1328,8 +1328,14 @@ function bracketedMean(source: string, section: SectionId): Item | null {
   return numberItem(null, 'map', 'bracketed-mean', field, source, BRACKET.value, BRACKET.numEnd, BRACKET.comma, unit, BRACKET.numStart);
 }
 
-/** Where the last of `chunks` from `i` that starts before `end` ends (at least `end`), and how many there are, in BRACKET_CHUNKS. */
+/** How many chunks `chunksThrough` counted last (read right after the call, as UNIT_CHUNKS is). */
 let BRACKET_CHUNKS = 0;
+
+/**
+ * Where a bracket that ends at `end` ends as the words of its line go: at the end of the last of
+ * `chunks` from `i` that starts before `end` (at least `end`). How many such chunks there are is
+ * left in BRACKET_CHUNKS, for the caller to step over.
+ */
 function chunksThrough(chunks: readonly Word[], i: number, end: number): number {
   let k = i;
   let last = end;
