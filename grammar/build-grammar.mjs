@@ -253,7 +253,8 @@ function spacedUnit(units, keys) {
     '\\s+(?:',
     // A unit spelling that is also a key of the section, with a number after it, is that key (`pco2 40 ph 7.4`).
     `(?!${keys}${END}\\s+${NUM_START})`, cap('keyword.other.unit', units.spaced), VALUE_END,
-    `|(?!${keys}${VALUE_END})(?=[A-Za-z%°])`, cap('keyword.other.unit.unknown', '[^\\s,#]{1,12}'), VALUE_END, `(?!\\s+${NUM_START})`,
+    // Up to 12 characters of one chunk, a comma between digits included (`mmol/l(9,5)`), as the lexer cuts it.
+    `|(?!${keys}${VALUE_END})(?=[A-Za-z%°])`, cap('keyword.other.unit.unknown', '(?:[^\\s,#]|(?<=[0-9]),(?=[0-9])){1,12}'), VALUE_END, `(?!\\s+${NUM_START})`,
     ')',
   ];
 }
@@ -365,19 +366,50 @@ function spacedPairRule(pairKeys, units, keys) {
 }
 
 /**
- * A blood pressure with its measured mean in brackets (`bp 120/80 (93)`, `bp 120 / 80 mmHg (93)`):
- * the parser reads the number in brackets as the mean arterial pressure.
+ * A number in brackets as the parser reads one (`bracketAt`): `(`, blanks, a number, a unit
+ * (glued or after blanks, any word: the parser reports an unknown one), blanks and `)` at the end
+ * of a chunk.
+ */
+const BRACKET_CLOSED = `\\(\\s*${NUM_MAX}(?:\\s*[^\\s,#\\(\\)]+)?\\s*\\)${VALUE_END}`;
+/**
+ * A bracket the parser reads as not closed: a number after `(` that no `)` follows after its word
+ * (`(93`, `(93 mmHg`, `(93 hr 80`). The parser's finding takes a known unit after the number when
+ * it is no key of the section, and the rest of the chunk it ends in.
+ */
+function bracketUnclosed(units, keys) {
+  return `\\(\\s*${NUM_MAX}(?!(?:\\s*[^\\s,#\\(\\)]+)?\\s*\\))(?:\\s*(?!${keys}${END})${units.spaced}(?=[\\s,\\(\\)#]|$))?${CHUNK_REST}`;
+}
+
+/** A number in brackets where the parser reads none: after a value that is no blood pressure, or after a comma (PN105). */
+function strayBracketRule(units, keys) {
+  const rule = assemble(START, cap(STRAY, `(?:${BRACKET_CLOSED}|${bracketUnclosed(units, keys)})`));
+  return { comment: 'A number in brackets that follows no blood pressure (hr 80 (93)): stray text for the parser (PN105).', match: rule.regex, captures: rule.captures };
+}
+
+/**
+ * A blood pressure with its measured mean in brackets (`bp 120/80 (93)`, `bp 120 / 80 mmHg (93)`,
+ * `bp 120/80 (93 mmHg)`, `bp 120/80(93)`, `bp 120/80 ( 93 )`): the parser reads the number in
+ * brackets as the mean arterial pressure, with its unit. The bracket may be glued to the pair or to
+ * its unit; one not closed (`bp 120/80 (93`) is reported (PN105) after a pair that is read.
  */
 function bracketedMeanRule(pairKeys, units, keys) {
   const rule = assemble(
     START, cap('variable.other.key', pairKeys), END,
-    '\\s+(?:',
-    cap(pair('meta.pair'), PAIR), groupTail(units, keys),
-    '|', cap(pair('meta.pair'), PAIR_SPACED), groupTail(units, keys),
+    '\\s+(?:', cap(pair('meta.pair'), PAIR), '|', cap(pair('meta.pair'), PAIR_SPACED), ')',
+    // The pair's unit: glued to its last number (cut where the bracket starts), or after blanks.
+    '(?:', cap('keyword.other.unit', units.glued), `(?=\\s*\\()`,
+    '|', cap('keyword.other.unit.unknown', '[A-Za-z%°][^\\s,#/\\(\\)]*'),
+    '|\\s+(?:', cap('keyword.other.unit', units.spaced), `(?=\\s*\\()`,
+    `|(?!${keys}${VALUE_END})`, cap('keyword.other.unit.unknown', '[A-Za-z%°][^\\s,#\\(\\)]{0,11}'),
+    '))?',
+    '\\s*(?:',
+    cap('punctuation.definition.mean.begin', '\\('), '\\s*', cap(numeric, NUM_MAX),
+    '(?:\\s*(?:', cap('keyword.other.unit', units.spaced), '(?=\\s*\\))', '|', cap('keyword.other.unit.unknown', '[^\\s,#\\(\\)]+'), '))?',
+    '\\s*', cap('punctuation.definition.mean.end', '\\)'), VALUE_END,
+    '|', cap(STRAY, bracketUnclosed(units, keys)),
     ')',
-    '\\s+', cap('punctuation.definition.mean.begin', '\\('), cap(numeric, NUM), cap('punctuation.definition.mean.end', '\\)'), VALUE_END,
   );
-  return { comment: 'A blood pressure with its measured mean in brackets (bp 120/80 (93)).', match: rule.regex, captures: rule.captures };
+  return { comment: 'A blood pressure with its measured mean in brackets (bp 120/80 (93), bp 120/80 (93 mmHg)).', match: rule.regex, captures: rule.captures };
 }
 
 /** A key that takes a word (`sex female`, `mode VC`, `gas kPa`, `device cannula`). */
@@ -406,6 +438,7 @@ function itemPatterns({ FIELDS }, sectionId, units) {
     { include: '#comment' },
     { include: '#item-separator' },
     { include: '#full-stop' },
+    strayBracketRule(units, keys),
     ...strayRules(gas, units),
     ...wordFields.map((f) => wordItemRule(f, keys)),
     ...(pairKeys.length > 0 ? [bracketedMeanRule(alt(pairKeys), units, keys), spacedPairRule(alt(pairKeys), units, keys)] : []),

@@ -621,6 +621,8 @@ describe('numbers typed with digits of another script', () => {
   }
 
   it('a word without such digits is not a key, as before', () => {
-    expect(section('vitals hr 80, (80)').issues.map((i) => i.message)).toEqual(['`(80)` is not a key; write items as `key value`, e.g. `hr 118`.']);
+    // A number in brackets is stray text that says where such a bracket is read (after a blood pressure).
+    expect(section('vitals hr 80, (80)').issues.map((i) => i.message)).toEqual(['`(80)` is not read: a number in brackets is read only right after a blood pressure, with no comma between, as its measured mean (`bp 120/80 (93)`). Write other values as `key value`, e.g. `map 93`.']);
+    expect(section('vitals hr 80, (a0)').issues.map((i) => i.message)).toEqual(['`(a0)` is not a key; write items as `key value`, e.g. `hr 118`.']);
   });
 });

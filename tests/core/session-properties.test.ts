@@ -54,7 +54,9 @@ const SETTINGS: readonly Partial<Settings>[] = [
 const SETTING_LINES = ['vent      fio2 0.35', 'vent      peep 5, fio2 1.0', 'vent      mode PS, ps 10', 'oxygen    room air', 'oxygen    cannula 2', 'oxygen    hfnc 50 L/min fio2 60 %', 'vent      vt 380 mL'];
 const PLACE_LINES = ['place     altitude 3000 m', 'place     barometric 600 mmHg', 'place     pb 80 kPa', 'place     altitude 0 m', 'place'];
 const TIMEPOINT_LINES = ['@ 01:00', '@ day 2 06:00  moved', '@ +30min', '@ day 1 21:00', '@'];
-const TYPED = ['abg 7.29/6.8/8.1/24', 'vent fio2 0.5, peep 8', 'place altitude 2500 m', '@ day 2 12:00', 'units gas kPa'];
+// A blood pressure with its mean in brackets typed a character at a time goes through an unclosed
+// bracket (`(9`, `(93 mm`) before it closes.
+const TYPED = ['abg 7.29/6.8/8.1/24', 'vent fio2 0.5, peep 8', 'place altitude 2500 m', '@ day 2 12:00', 'units gas kPa', 'vitals bp 120/80(93 mmHg) hr 80'];
 
 type Edit =
   | { kind: 'move'; from: number; to: number }

@@ -4,7 +4,7 @@
  * doubled commas, glued units, case variants, decimal commas, comments, prose with emoji,
  * timepoints in every form, broken lines, blank lines, and mixed line endings; commas where
  * they separate nothing (at the start of a line, after its first word, at its end), and a full
- * stop that ends a line.
+ * stop that ends a line; a number in brackets after a value (a blood pressure's mean, or stray).
  */
 import fc from 'fast-check';
 import { fieldsInSection, type FieldDef } from '../../server/src/core/fields/registry';
@@ -56,7 +56,13 @@ function itemOf(field: FieldDef): fc.Arbitrary<string> {
     { weight: 1, arbitrary: fc.constantFrom(...unitSpellings(field)) }, // glued: 89%
     { weight: 1, arbitrary: fc.tuple(gap, unknownUnit).map(([g, u]) => g + u) },
   );
-  return fc.tuple(key, gap, valueOf(field), unit).map(([k, g, v, u]) => `${k}${g}${v}${u}`);
+  // A number in brackets after the value: the measured mean after a blood pressure (`bp 120/80 (93)`,
+  // with a unit, glued, with blanks inside, not closed), stray text after any other value.
+  const bracket = field.kind === 'word' ? fc.constant('') : fc.oneof(
+    { weight: 12, arbitrary: fc.constant('') },
+    { weight: 1, arbitrary: fc.tuple(maybeGap, fc.constantFrom('(93)', '(93 mmHg)', '(93mmHg)', '( 93 )', '(12 kPa)', '(93', '(93 mmHg', '(9,5)', '(93 mm Hg)', '(93)x')).map(([g, b]) => g + b) },
+  );
+  return fc.tuple(key, gap, valueOf(field), unit, bracket).map(([k, g, v, u, b]) => `${k}${g}${v}${u}${b}`);
 }
 
 /** Before a line's first word, or between it and the next: blanks, sometimes a comma that separates nothing. */

@@ -190,9 +190,10 @@ function itemsText(node: SectionLine, unglue: boolean): string | null {
     } else if (item.implied === 'device-flow') {
       return null; // a flow always follows its device
     } else if (item.implied === 'bracketed-mean') {
-      // `bp 120/80 (93)`: the mean stays in its brackets after the blood pressure it belongs to.
+      // `bp 120/80 (93)`: the mean stays in its brackets after the blood pressure it belongs to,
+      // with its unit (`(93 mmHg)`); one blank before the bracket (`120/80(93)` too) and none inside.
       if (!item.value || parts.length === 0) return null;
-      parts[parts.length - 1] += ` (${item.value.text})`;
+      parts[parts.length - 1] += ` (${item.value.text}${unitText(item, unglue)})`;
     } else {
       if (!item.key || !item.value) return null;
       parts.push(`${item.key.text} ${squeezeBlanks(item.value.text)}${unitText(item, unglue)}`);

@@ -829,17 +829,19 @@ const GROUP_NUMBERS: number[] = [];
 /**
  * The numbers joined by slashes at chunk `i` (`120/80`, `7.28/56/71/26`, a unit glued to the
  * last), or, where `spaced`, written with blanks around the slashes (`120 / 80`); null when none.
- * How many chunks it took and its glued unit are left in GROUP.
+ * How many chunks it took and its glued unit are left in GROUP. Where `meanLimit` is not -1 (a
+ * blood pressure, on a line whose words end there), a number in brackets glued to the last number
+ * (`120/80(93)`) ends the group and is left as its glued unit, for the caller to cut off.
  */
-function groupAt(chunks: readonly Word[], i: number, source: string, spaced: boolean): PairNode | null {
+function groupAt(chunks: readonly Word[], i: number, source: string, spaced: boolean, meanLimit = -1): PairNode | null {
   const chunk = chunks[i];
   GROUP.used = 1;
   GROUP.unit = null;
   if (!chunk) return null;
   let last = chunk;
-  let group = readSlashGroup(chunk, source);
+  let group = readSlashGroup(chunk, source, meanLimit);
   if (!group && spaced) {
-    group = readSpacedGroup(chunks, i, source);
+    group = readSpacedGroup(chunks, i, source, meanLimit);
     if (group) last = chunks[i + GROUP.used - 1]!;
   }
   if (group && GROUP_UNIT_AT >= 0) GROUP.unit = token(last.text.slice(GROUP_UNIT_AT), last.start + GROUP_UNIT_AT, last.end);
@@ -850,7 +852,7 @@ function groupAt(chunks: readonly Word[], i: number, source: string, spaced: boo
  * Numbers joined by single slashes in one chunk (`120/80`, `7.28/56/71/26`), or null. The last
  * number may carry a glued unit (`120/80mmHg`), whose position is left in GROUP_UNIT_AT.
  */
-function readSlashGroup(chunk: Word, source: string): PairNode | null {
+function readSlashGroup(chunk: Word, source: string, meanLimit = -1): PairNode | null {
   GROUP_UNIT_AT = -1;
   if (!hasSlash(chunk)) return null;
   const text = chunk.text;
@@ -868,8 +870,11 @@ function readSlashGroup(chunk: Word, source: string): PairNode | null {
     if (length !== end - from) {
       // Only the last number may have a unit glued to it, and only one that starts with a letter or
       // %; a known unit with a slash of its own ends the group there (`7.28/56/71/26mmol/L`).
-      if (length === 0 || !isUnitStart(text.charCodeAt(from + length))) return null;
-      if (slash >= 0) {
+      if (length === 0) return null;
+      if (!isUnitStart(text.charCodeAt(from + length))) {
+        // `120/80(93)`: a blood pressure with its mean glued to it (see `groupAt`).
+        if (!(slash < 0 && k > 0 && meanLimit >= 0 && bracketAt(source, chunk.start + from + length, meanLimit, null) !== NO_BRACKET)) return null;
+      } else if (slash >= 0) {
         // (After one number only, it is a number and its unit: `24mmol/L`.)
         if (k === 0 || !isKnownUnitSpelling(text.slice(from + length))) return null;
         slash = -1;
@@ -960,7 +965,7 @@ function isUnitStart(c: number): boolean {
  * from chunk `i`, or null; how many chunks it took is left in GROUP.used. A glued unit may follow
  * the last number (`120 / 80mmHg`, left in GROUP_UNIT_AT as for `readSlashGroup`).
  */
-function readSpacedGroup(chunks: readonly Word[], i: number, source: string): PairNode | null {
+function readSpacedGroup(chunks: readonly Word[], i: number, source: string, meanLimit = -1): PairNode | null {
   GROUP_UNIT_AT = -1;
   const first = chunks[i];
   if (!first || first.text.indexOf('/') >= 0 || scanNumber(first.text) !== first.text.length) return null;
@@ -980,7 +985,7 @@ function readSpacedGroup(chunks: readonly Word[], i: number, source: string): Pa
     const length = scanNumber(next.text);
     if (length === 0 || next.text.indexOf('/') >= 0) break;
     const glued = length < next.text.length;
-    if (glued && !isUnitStart(next.text.charCodeAt(length))) break;
+    if (glued && !isUnitStart(next.text.charCodeAt(length)) && !(meanLimit >= 0 && bracketAt(source, next.start + length, meanLimit, null) !== NO_BRACKET)) break;
     packed[4 * count] = SCANNED.value;
     packed[4 * count + 1] = next.start;
     packed[4 * count + 2] = next.start + length;
@@ -1230,20 +1235,135 @@ class Item implements ItemNode, Span {
   }
 }
 
+/** What `bracketAt` found: no number in brackets there, one closed by `)`, one whose `)` is missing. */
+const NO_BRACKET = 0;
+const CLOSED = 1;
+const UNCLOSED = 2;
+
 /**
- * The mean arterial pressure written in brackets after a blood pressure (`bp 120/80 (93)`): an
- * item of the field `mean_bp` with its key implied by its place, spanning the number inside the
- * brackets; null when `chunk` is not one number in brackets, or follows a comma.
+ * What `bracketAt` read last (read right after the call, as SCANNED is): the number inside the
+ * brackets (its value, where it starts and ends, a decimal comma), where its unit starts and ends
+ * (-1: none), and where the bracket ends: after its `)`, or for an unclosed one after the last
+ * word it took. One record for every bracket rather than an object per bracket.
  */
-function bracketedMeanAt(chunk: Word | undefined, source: string, section: SectionId): Item | null {
-  if (chunk === undefined || chunk.afterComma) return null;
-  const start = chunk.start + 1;
-  const end = chunk.end - 1;
-  if (end <= start || source.charCodeAt(chunk.start) !== 0x28 /* ( */ || source.charCodeAt(end) !== 0x29 /* ) */) return null;
-  if (scanNumber(source, start) !== end - start) return null;
+const BRACKET = { value: 0, numStart: 0, numEnd: 0, comma: false, unitStart: -1, unitEnd: -1, end: 0 };
+
+/** Where a run of characters inside brackets ends from `at` (at a blank, a comma, a bracket or `limit`). */
+function bracketWordEnd(source: string, at: number, limit: number): number {
+  while (at < limit) {
+    const c = source.charCodeAt(at);
+    if (isBlank(c) || c === 0x2c /* , */ || c === 0x29 /* ) */ || c === 0x28 /* ( */) break;
+    at++;
+  }
+  return at;
+}
+
+function blanksEnd(source: string, at: number, limit: number): number {
+  while (at < limit && isBlank(source.charCodeAt(at))) at++;
+  return at;
+}
+
+/**
+ * A number in brackets at `open` (the `(`) of `source`, whose words end at `limit`: `(93)`,
+ * `(93 mmHg)`, `(93mmHg)`, `( 93 )`, `(93 mm Hg)`: blanks may come after `(` and before `)`, and
+ * a unit after the number, glued or not. CLOSED when a `)` follows and ends a word (a blank, a
+ * comma or the end of the words comes next); UNCLOSED when the number is not followed by a `)`
+ * (at the end of the line, at a comma or at another word): then the word after the number is kept
+ * as its unit only when it is a unit the format knows and no key of `section` (null: any word
+ * that is a unit), so `(93 hr 80` leaves `hr 80` to be read. NO_BRACKET when no number follows
+ * the `(`, or the `)` is glued to more (`(93)x`). What it read is left in BRACKET.
+ */
+function bracketAt(source: string, open: number, limit: number, section: SectionId | null): number {
+  if (open < 0 || open >= limit || source.charCodeAt(open) !== 0x28 /* ( */) return NO_BRACKET;
+  const numStart = blanksEnd(source, open + 1, limit);
+  const length = numStart < limit ? scanNumber(source, numStart) : 0;
+  // A number is read within the words (`limit`), and ends where a word inside brackets may.
+  if (length === 0 || numStart + length > limit) return NO_BRACKET;
+  BRACKET.value = SCANNED.value;
+  BRACKET.comma = SCANNED.decimalComma;
+  BRACKET.numStart = numStart;
+  BRACKET.numEnd = numStart + length;
+  BRACKET.unitStart = -1;
+  BRACKET.unitEnd = -1;
+  let at = BRACKET.numEnd;
+  const unitStart = blanksEnd(source, at, limit);
+  let unitEnd = bracketWordEnd(source, unitStart, limit);
+  if (unitEnd > unitStart) {
+    // `(93 mm Hg)`: a unit of two words.
+    const second = blanksEnd(source, unitEnd, limit);
+    const secondEnd = bracketWordEnd(source, second, limit);
+    if (unitEnd - unitStart === 2 && second > unitEnd && secondEnd > second && isKnownUnitSpelling(`${source.slice(unitStart, unitEnd)} ${source.slice(second, secondEnd)}`)) unitEnd = secondEnd;
+    BRACKET.unitStart = unitStart;
+    BRACKET.unitEnd = unitEnd;
+    at = unitEnd;
+  }
+  const close = blanksEnd(source, at, limit);
+  if (close < limit && source.charCodeAt(close) === 0x29 /* ) */) {
+    const after = close + 1;
+    if (after < limit && !isBlank(source.charCodeAt(after)) && source.charCodeAt(after) !== 0x2c /* , */) return NO_BRACKET;
+    BRACKET.end = after;
+    return CLOSED;
+  }
+  // Unclosed: the word after the number stays its unit only when it is one (`(93 mmHg`), not a key (`(93 hr 80`).
+  if (BRACKET.unitStart >= 0) {
+    const unit = source.slice(BRACKET.unitStart, BRACKET.unitEnd);
+    if (!isKnownUnitSpelling(unit) || (section !== null && isKey(section, unit))) {
+      BRACKET.unitStart = -1;
+      BRACKET.unitEnd = -1;
+    }
+  }
+  BRACKET.end = BRACKET.unitStart >= 0 ? BRACKET.unitEnd : BRACKET.numEnd;
+  return UNCLOSED;
+}
+
+/**
+ * The measured mean of a blood pressure that `bracketAt` read last (`bp 120/80 (93)`): an item of
+ * the field `mean_bp` with its key implied by its place, spanning the number inside the brackets
+ * and its unit; null when the section has no mean.
+ */
+function bracketedMean(source: string, section: SectionId): Item | null {
   const field = fieldFor(section, 'map') ?? null;
   if (field === null) return null;
-  return numberItem(null, 'map', 'bracketed-mean', field, source, SCANNED.value, end, SCANNED.decimalComma, null, start);
+  const unit = BRACKET.unitStart < 0 ? null : token(source.slice(BRACKET.unitStart, BRACKET.unitEnd), BRACKET.unitStart, BRACKET.unitEnd);
+  return numberItem(null, 'map', 'bracketed-mean', field, source, BRACKET.value, BRACKET.numEnd, BRACKET.comma, unit, BRACKET.numStart);
+}
+
+/** How many chunks `chunksThrough` counted last (read right after the call, as UNIT_CHUNKS is). */
+let BRACKET_CHUNKS = 0;
+
+/**
+ * Where a bracket that ends at `end` ends as the words of its line go: at the end of the last of
+ * `chunks` from `i` that starts before `end` (at least `end`). How many such chunks there are is
+ * left in BRACKET_CHUNKS, for the caller to step over.
+ */
+function chunksThrough(chunks: readonly Word[], i: number, end: number): number {
+  let k = i;
+  let last = end;
+  while (k < chunks.length && chunks[k]!.start < end) last = Math.max(last, chunks[k++]!.end);
+  BRACKET_CHUNKS = k - i;
+  return last;
+}
+
+/** The finding on an unclosed bracket after a blood pressure (`bp 120/80 (93`), from `open`; the mean is not read. */
+function unclosedMeanIssue(source: string, open: number, end: number): SyntaxIssue {
+  const written = source.slice(open, end);
+  const closed = `${written})`;
+  return {
+    check: 'stray-text',
+    span: { start: open, end },
+    message: `\`${written}\` has no closing bracket: the measured mean after a blood pressure is written in brackets, \`${closed}\`, and is not read until the bracket is closed.`,
+    fixes: [{ title: `Write \`${closed}\``, edits: [{ span: { start: open, end }, newText: closed }] }],
+  };
+}
+
+/** The finding on a number in brackets that follows no blood pressure (`hr 80 (93)`, `bp 120/80, (93)`). */
+function misplacedBracketIssue(source: string, open: number, end: number): SyntaxIssue {
+  return {
+    check: 'stray-text',
+    span: { start: open, end },
+    message: `\`${source.slice(open, end)}\` is not read: a number in brackets is read only right after a blood pressure, with no comma between, as its measured mean (\`bp 120/80 (93)\`). Write other values as \`key value\`, e.g. \`map 93\`.`,
+    fixes: NONE,
+  };
 }
 
 /** An item whose value is a pair, a word or nothing. */
@@ -1350,6 +1470,8 @@ function startsTwoWordUnit(first: string, second: Word): boolean {
 function parseItems(section: SectionId, chunks: readonly Word[], start: number, issues: SyntaxIssue[], source: string): readonly ItemNode[] {
   let i = start;
   const n = chunks.length;
+  /** Where the line's words end (before a comment, and before a full stop left out at its end). */
+  const limit = n > 0 ? chunks[n - 1]!.end : 0;
   // Read into scratch space (reused from line to line: parseItems never nests), then copied into
   // a list of the exact length, kept as long as the line.
   const items = ITEMS;
@@ -1431,7 +1553,14 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
         i++;
         continue;
       }
-      // `/`, `-`, `(80)`: punctuation is never a key (and a did-you-mean would turn it into one).
+      if (source.charCodeAt(chunk.start) === 0x28 /* ( */ && bracketAt(source, chunk.start, limit, section) !== NO_BRACKET) {
+        // `hr 80 (93)`, `bp 120/80, (93)`: a number in brackets that follows no blood pressure, as one finding.
+        const end = chunksThrough(chunks, i, BRACKET.end);
+        issues.push(misplacedBracketIssue(source, chunk.start, end));
+        i += BRACKET_CHUNKS;
+        continue;
+      }
+      // `/`, `-`, `(sitting)`: punctuation is never a key (and a did-you-mean would turn it into one).
       issues.push({ check: 'stray-text', span: chunk.span, message: `\`${chunk.text}\` is not a key; write items as \`key value\`, e.g. \`hr 118\`.`, fixes: NONE });
       i++;
       continue;
@@ -1459,7 +1588,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
         }
       } else {
         // `bp 120 / 80`: a pair may be written with blanks around its slash.
-        const group = groupAt(chunks, i, source, field?.kind === 'pair');
+        const group = groupAt(chunks, i, source, field?.kind === 'pair', field?.id === 'bp' ? limit : -1);
         const glued = GROUP.unit;
         const used = GROUP.used;
         const length = group ? 0 : numberChunk(next);
@@ -1476,12 +1605,20 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
             issues.push({ check: 'missing-value', span: { start: key.start, end: group.end }, message: `\`${key.text}\` takes two numbers joined by a slash (\`${key.text} 120/80\`); \`${group.text}\` is ${countWord(group.count)}, so it is not read.`, fixes: NONE });
           }
           if (field?.id === 'bp' && group.count === 2) {
-            // `bp 120/80 (93)`: the measured mean in brackets after the blood pressure, read as `map 93`.
-            const mean = bracketedMeanAt(chunks[i], source, section);
-            if (mean !== null) {
+            // `bp 120/80 (93)`: the measured mean in brackets after the blood pressure, read as `map 93`;
+            // also glued to the pair or its unit (`120/80(93)`, `120/80 mmHg(93)`: cut off the unit).
+            const cut = unit === null ? -1 : unit.text.indexOf('(');
+            const after = chunks[i];
+            const open = unit !== null && cut >= 0 ? unit.start + cut : after !== undefined && !after.afterComma ? after.start : -1;
+            const found = bracketAt(source, open, limit, section);
+            if (found !== NO_BRACKET && (found === UNCLOSED || fieldFor(section, 'map') !== undefined)) {
+              if (unit !== null && cut >= 0) unit = cut === 0 ? null : token(unit.text.slice(0, cut), unit.start, open);
               items[count++] = otherItem(key.text, keyName, null, field, value, unit, key.start);
-              items[count++] = mean;
-              i++;
+              const mean = found === CLOSED ? bracketedMean(source, section) : null;
+              if (mean !== null) items[count++] = mean;
+              const end = chunksThrough(chunks, i, BRACKET.end);
+              if (found === UNCLOSED) issues.push(unclosedMeanIssue(source, open, end));
+              i += BRACKET_CHUNKS;
               continue;
             }
           }
