@@ -5,5 +5,6 @@ export default defineConfig({
     include: ['tests/**/*.test.ts'],
     exclude: ['tests/e2e/**', 'tests/editors/**', 'node_modules/**'],
     testTimeout: 20000,
+    setupFiles: ['tests/helpers/property-seed.ts'],
   },
 });
