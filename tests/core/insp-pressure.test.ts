@@ -55,3 +55,36 @@ describe('the set inspiratory pressure (`pinsp`)', () => {
     expect(codes(70)).toEqual(['PN301']);
   });
 });
+
+describe('a misspelt key nearer a setting than a reading', () => {
+  // A fix that turns a setting into a reading changes what the number means (a set 18 read as a
+  // measured peak), so a reading is not offered where a setting is at least as near (our rule,
+  // common practice of safe fixes, no source).
+  const pn201 = (text: string) => checkNote(text).findings.filter((f) => f.code === 'PN201');
+
+  it('offers `pinsp` first, and never the peak pressure `pip`, for `pinps`, `pnsp` and `pinp`', () => {
+    for (const written of ['pinps', 'pnsp', 'pinp']) {
+      const [f] = pn201(`@ 08:00\nvent mode PC, ${written} 18, peep 8`);
+      expect(f?.message, written).toMatch(new RegExp(`^\`${written}\` is not a key of vent lines\\. Did you mean \`pinsp\``));
+      const offered = f!.fixes.map((x) => x.title);
+      expect(offered[0], written).toBe('Change to `pinsp`');
+      for (const reading of ['pip', 'peak', 'ppeak']) expect(offered, written).not.toContain(`Change to \`${reading}\``);
+    }
+    // `pip` was one letter from `pinp`, as `pinsp` is; `peep`, two letters off, is a setting too.
+    const [pinp] = pn201('@ 08:00\nvent mode PC, pinp 18, peep 8');
+    expect(pinp?.message).toBe('`pinp` is not a key of vent lines. Did you mean `pinsp` or `peep`?');
+    // Where nothing was set aside, a one-letter slip of a long key is still a safe fix.
+    expect(pn201('@ 08:00\nvent mode PC, pinsq 18')[0]?.fixes.map((x) => [x.title, x.preferred === true])).toEqual([['Change to `pinsp`', true]]);
+  });
+
+  it('still offers a reading nearer than every setting (`ppeek` is `ppeak`)', () => {
+    const [f] = pn201('@ 08:00\nvent mode PC, ppeek 24');
+    expect(f?.fixes[0]?.title).toBe('Change to `ppeak`');
+  });
+
+  it('sets a reading aside where a setting is as near: `peek` is offered `peep` alone, never applied unasked', () => {
+    const [f] = pn201('@ 08:00\nvent mode PC, peek 24');
+    expect(f?.message).toBe('`peek` is not a key of vent lines. Did you mean `peep`?');
+    expect(f?.fixes.map((x) => x.preferred === true)).toEqual([false]);
+  });
+});
