@@ -88,3 +88,65 @@ describe('a misspelt key nearer a setting than a reading', () => {
     expect(f?.fixes.map((x) => x.preferred === true)).toEqual([false]);
   });
 });
+
+// PN317. In pressure control the ventilator holds the airway at PEEP plus the set inspiratory
+// pressure during inspiration, so the measured peak reads about their sum (common practice, no
+// source). A peak near `pinsp` itself and far below PEEP + `pinsp` says `pinsp` was written as the
+// absolute inspiratory level, which Pneumark reads as above PEEP.
+describe('a peak pressure near `pinsp` itself, far below PEEP + `pinsp` (PN317)', () => {
+  const pn317 = (text: string) => checkNote(text).findings.filter((f) => f.code === 'PN317');
+
+  it('fires on `pinsp` written as the absolute level, says so, and suggests the level less PEEP', () => {
+    const text = '@ 08:00\nvent mode PC, pinsp 26, peep 8, rate 20, fio2 0.5, peak 27';
+    const [f, ...more] = pn317(text);
+    expect(more).toEqual([]);
+    expect(f?.severity).toBe('warning');
+    expect(f?.message).toBe('Peak pressure 27 cmH2O is near `pinsp` 26 cmH2O, well below PEEP 8 + `pinsp` 26 = 34 cmH2O: consistent with the absolute inspiratory level written as `pinsp`, which Pneumark reads as the pressure above PEEP. If 26 is the absolute level, write `pinsp 18` (26 less PEEP 8).');
+    // On the `pinsp` item, where it is written.
+    const line = text.split('\n')[1]!;
+    expect(f?.range).toEqual({ start: { line: 1, character: line.indexOf('pinsp') }, end: { line: 1, character: line.indexOf('pinsp') + 'pinsp 26'.length } });
+    // The fix writes the level less PEEP, by hand only (it changes a setting).
+    expect(f?.fixes.map((x) => [x.title, x.preferred === true])).toEqual([['Write `pinsp 18` (the level less PEEP)', false]]);
+    const fixed = checkNote(text.replace('pinsp 26', 'pinsp 18'));
+    expect(fixed.findings.map((x) => x.code)).toEqual([]);
+  });
+
+  it('fires at a later timepoint on the peak, pointing to the `pinsp` carried from an earlier one', () => {
+    const [f] = pn317('@ 08:00\nvent mode PC, pinsp 22, peep 10, rate 18\n@ 09:00\nvent peak 23');
+    expect(f?.range.start.line).toBe(3);
+    expect(f?.related?.map((r) => [r.range.start.line, r.message])).toEqual([[1, 'carried from here']]);
+  });
+
+  it('at the edges: within 2 cmH2O of `pinsp` and more than 4 below PEEP + `pinsp`, with PEEP at least 5', () => {
+    const codes = (pinsp: number, peep: number, peak: number) => pn317(`@ 08:00\nvent mode PC, pinsp ${pinsp}, peep ${peep}, peak ${peak}`).length;
+    expect(codes(20, 8, 22)).toBe(1); // 2 above pinsp, 6 below the sum
+    expect(codes(20, 8, 18)).toBe(1); // 2 below pinsp
+    expect(codes(20, 8, 22.5)).toBe(0); // beyond 2 of pinsp
+    expect(codes(20, 8, 17.5)).toBe(0);
+    expect(codes(20, 5, 20)).toBe(1); // PEEP 5: the sum 25 is 5 above the peak
+    expect(codes(20, 4, 20)).toBe(0); // PEEP below 5: the two readings are too close to tell apart
+    expect(codes(20, 6, 22)).toBe(0); // 4 below the sum, not more
+  });
+
+  it('gives no finding where the peak is about PEEP + `pinsp`, or an input is missing', () => {
+    // The counter-example: `pinsp` above PEEP, as Pneumark reads it.
+    expect(pn317('@ 08:00\nvent mode PC, pinsp 18, peep 8, peak 27')).toEqual([]);
+    expect(pn317('@ 08:00\nvent mode PC, pinsp 18, peep 8, peak 25')).toEqual([]);
+    // No peak measured, no PEEP, no `pinsp`.
+    expect(pn317('@ 08:00\nvent mode PC, pinsp 26, peep 8')).toEqual([]);
+    expect(pn317('@ 08:00\nvent mode PC, pinsp 26, peak 27')).toEqual([]);
+    expect(pn317('@ 08:00\nvent mode PC, peep 8, peak 27')).toEqual([]);
+    // A peak from an earlier timepoint is a reading: it does not carry.
+    expect(pn317('@ 08:00\nvent mode PC, pinsp 18, peep 8, peak 27\n@ 09:00\nvent pinsp 26')).toEqual([]);
+    // `pinsp` ended by a change of mode.
+    expect(pn317('@ 08:00\nvent mode PC, pinsp 26, peep 8\n@ 09:00\nvent mode VC, vt 420, peak 27')).toEqual([]);
+    // A `pinsp` at or below PEEP cannot be an absolute inspiratory level.
+    expect(pn317('@ 08:00\nvent mode PC, pinsp 8, peep 10, peak 9')).toEqual([]);
+  });
+
+  it('compares in cmH2O a `pinsp` written in mbar, and offers no fix it would have to convert', () => {
+    const [f] = pn317('@ 08:00\nvent mode PC, pinsp 26 mbar, peep 8, peak 27');
+    expect(f?.message).toContain('near `pinsp` 26.51 cmH2O');
+    expect(f?.fixes).toEqual([]);
+  });
+});
