@@ -344,8 +344,8 @@ function unknownKeyIssue(item: ItemNode, section: SectionId, line: number, lineI
   // unknown key, and is offered the devices it is near.
   const devices = section === 'oxygen' && lineItems[0] === item ? nearDevices(key.text) : [];
   const renamed = endExpiratoryName(key.text, section, lineItems);
-  const keys = renamed !== null ? null : settingsBeforeReadings(key.text, section, closest(key.text, keysInSection(section), Infinity));
-  const near = renamed !== null ? [renamed] : [...devices, ...keys!.near].slice(0, 3);
+  const keys = renamed !== null ? { near: [renamed], setAside: false } : settingsBeforeReadings(key.text, section, closest(key.text, keysInSection(section), Infinity));
+  const near = renamed !== null ? keys.near : [...devices, ...keys.near].slice(0, 3);
   const elsewhere = FIELDS.filter((f) => f.aliases.includes(key.text.toLowerCase())).flatMap((f) => f.sections);
   const where = elsewhere.length > 0 ? ` (\`${key.text}\` belongs on a ${[...new Set(elsewhere)].join(' or ')} line)` : '';
   const hint = near.length > 0 ? ` Did you mean ${near.map((k) => `\`${k}\``).join(' or ')}?` : '';
@@ -355,7 +355,7 @@ function unknownKeyIssue(item: ItemNode, section: SectionId, line: number, lineI
     span: key.span,
     message: `\`${key.text}\` is ${devices.length > 0 ? 'neither a device nor a key' : 'not a key'} of ${section} lines${where}.${hint}`,
     // With a reading set aside the word was as near a key of another kind: never a fix applied unasked.
-    fixes: near.map((k) => ({ title: `Change to \`${k}\``, edits: [{ span: key.span, newText: k }], preferred: near.length === 1 && keys?.setAside !== true && safeKeyFix(key.text.toLowerCase(), k.toLowerCase()) })),
+    fixes: near.map((k) => ({ title: `Change to \`${k}\``, edits: [{ span: key.span, newText: k }], preferred: near.length === 1 && !keys.setAside && safeKeyFix(key.text.toLowerCase(), k.toLowerCase()) })),
   };
 }
 
@@ -364,8 +364,8 @@ function unknownKeyIssue(item: ItemNode, section: SectionId, line: number, lineI
  * (values measured on the device: `pip`, the peak pressure) that a setting is at least as near:
  * a fix that turns a setting into a reading changes what the number means (a set inspiratory
  * pressure of 18 read as a measured peak; our rule, no source). `pinp` is one letter from both
- * `pinsp` and `pip`, and is offered `pinsp`. A reading nearer than every setting stays (`ppeek`,
- * `ppeak`). `setAside` says whether a reading was left out.
+ * `pinsp` and `pip`, and is offered `pinsp` (and `peep`, two letters off), not `pip`. A reading
+ * nearer than every setting stays (`ppeek`, `ppeak`). `setAside` says whether a reading was left out.
  */
 function settingsBeforeReadings(written: string, section: SectionId, near: readonly string[]): { near: readonly string[]; setAside: boolean } {
   if (sectionById(section).kind !== 'setting' || near.length < 2) return { near, setAside: false };
