@@ -59,7 +59,10 @@ describe('mean arterial pressure from the blood pressure', () => {
     expect(renderShow('n.pneu', result, paint(false))).toMatch(/MAP \(BP\) 93 mmHg est\./);
     expect(derivedHover(derived(text, 'mean_arterial_pressure'), result.analysis.timeline.timepoints[0]!)).toContain('80 + (120 − 80) ÷ 3 = 93 mmHg');
     const names = exportColumns().map((c) => c.name);
-    expect(names.slice(-3, -1)).toEqual(['mean_arterial_pressure_mmHg', 'paco2_etco2_difference_mmHg']);
+    // Added after every earlier column (the findings counts close the first list), in the order added.
+    const at = names.indexOf('mean_arterial_pressure_mmHg');
+    expect(at).toBeGreaterThan(names.indexOf('findings_information'));
+    expect(names.slice(at, at + 2)).toEqual(['mean_arterial_pressure_mmHg', 'paco2_etco2_difference_mmHg']);
     expect(timepointRows('n.pneu', result, { redactProse: false, shiftDays: 0 })[0]!['mean_arterial_pressure_mmHg']).toBeCloseTo(93.333, 3);
   });
 
@@ -135,7 +138,9 @@ describe('a measured mean arterial pressure', () => {
 
   it('is exported in a column added last, and never shown in kPa', () => {
     const names = exportColumns().map((c) => c.name);
-    expect(names.at(-1)).toBe('mean_bp_mmHg');
+    // Added after every earlier column (the findings counts close the first list), before the later ones.
+    expect(names.indexOf('mean_bp_mmHg')).toBeGreaterThan(names.indexOf('findings_information'));
+    expect(names.indexOf('mean_bp_mmHg')).toBe(names.indexOf('paco2_etco2_difference_mmHg') + 1);
     const text = '@ 08:00\nunits gas kPa\nvitals map 65';
     expect(timepointRows('n.pneu', checkNote(text), { redactProse: false, shiftDays: 0 })[0]!['mean_bp_mmHg']).toBe(65);
     expect(renderShow('n.pneu', checkNote(text), paint(false))).toMatch(/MAP 65 mmHg(?! \()/);

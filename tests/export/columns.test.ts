@@ -42,7 +42,7 @@ describe('the column list', () => {
       'carried_fields', 'findings_errors', 'findings_warnings', 'findings_information',
       // Added later: after every earlier column.
       'mechanical_power_surrogate_J_min', 'amplitude_cmH2O', 'base_excess_venous_mmol_L',
-      'mean_arterial_pressure_mmHg', 'paco2_etco2_difference_mmHg', 'mean_bp_mmHg',
+      'mean_arterial_pressure_mmHg', 'paco2_etco2_difference_mmHg', 'mean_bp_mmHg', 'insp_pressure_cmH2O',
     ]);
   });
 

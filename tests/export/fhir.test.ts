@@ -310,9 +310,19 @@ describe('codes that fit the value', () => {
     expect(byId(b, 'obs-0-etco2')?.valueQuantity).toEqual({ value: 35, unit: 'mmHg', system: 'http://unitsofmeasure.org', code: 'mm[Hg]' });
     const ids = observations(b).map((o) => o.id);
     for (const id of ['obs-0-mode', 'obs-1-device', 'obs-header-altitude', 'obs-header-barometric', 'obs-0-barometric']) expect(ids).not.toContain(id);
-    expect(FIELDS.filter((f) => isObservedField(f) && loincCodesOf(f).length === 0).map((f) => f.id)).toEqual(['ipap', 'epap', 'cpap_level', 'vent_rate', 'amplitude', 'minute_volume']);
+    expect(FIELDS.filter((f) => isObservedField(f) && loincCodesOf(f).length === 0).map((f) => f.id)).toEqual(['ipap', 'epap', 'cpap_level', 'vent_rate', 'amplitude', 'insp_pressure', 'minute_volume']);
     expect(FIELDS.filter((f) => !isObservedField(f)).map((f) => f.id)).toEqual(['sex', 'altitude', 'barometric', 'gas_unit', 'device', 'mode']);
     expect(validator.validate(b, true)).toEqual([]);
+  });
+  it('a set inspiratory pressure (`pinsp`, no LOINC code found on a LOINC or HL7 page) is a therapy Observation with its label alone, and the Bundle stays valid', () => {
+    const b = toFhirBundle('a.pneu', checked('@ day 1 08:00\nvent mode PC, pinsp 18, peep 8, rate 20, fio2 0.5\n@ +1h\nvent fio2 0.4'), noAnchor);
+    expect(codeOf(b, 'obs-0-insp-pressure')).toEqual({ text: 'Set inspiratory pressure' });
+    expect(byId(b, 'obs-0-insp-pressure')?.category?.[0]?.coding?.[0]?.code).toBe('therapy');
+    expect(byId(b, 'obs-0-insp-pressure')?.valueQuantity).toEqual({ value: 18, unit: 'cmH2O', system: 'http://unitsofmeasure.org', code: 'cm[H2O]' });
+    // Carried to the next timepoint, not exported again there.
+    expect(byId(b, 'obs-1-insp-pressure')).toBeUndefined();
+    expect(validator.validate(b, true)).toEqual([]);
+    for (const resource of observations(b)) expect(validator.validate(resource, true), resource.id).toEqual([]);
   });
 });
 

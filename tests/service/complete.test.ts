@@ -120,6 +120,19 @@ describe('keys', () => {
   });
 });
 
+describe('the set inspiratory pressure', () => {
+  it('is offered on a vent line as `pinsp`, described as above PEEP, and never on an oxygen line', () => {
+    const items = complete('vent mode PC, |');
+    const pinsp = items.find((c) => c.label === 'pinsp');
+    expect(pinsp, 'pinsp offered').toBeDefined();
+    expect(pinsp?.documentation).toContain('above PEEP');
+    // Its aliases are not offered as keys of their own: one entry per field.
+    expect(items.map((c) => c.label)).not.toContain('insp_pressure');
+    expect(labels('vent mode PC, pin|')).toContain('pinsp');
+    expect(labels('oxygen niv, |')).not.toContain('pinsp');
+  });
+});
+
 describe('words', () => {
   it('modes after `mode`, sexes after `sex`, gas units after `units gas`, devices first on an oxygen line', () => {
     expect(labels('vent mode |')).toEqual(['VC', 'PC', 'PRVC', 'PS', 'SIMV', 'APRV', 'CPAP', 'HFOV']);
@@ -197,7 +210,7 @@ describe('units', () => {
   });
 
   it('offers a section\'s own keys first, then those it shares with other lines', () => {
-    expect(labels('vent |')).toEqual(['mode', 'vt', 'rate', 'peep', 'plateau', 'peak', 'flow', 'map', 'amplitude', 'ps', 've', 'etco2', 'fio2']);
+    expect(labels('vent |')).toEqual(['mode', 'vt', 'rate', 'peep', 'plateau', 'peak', 'flow', 'map', 'amplitude', 'ps', 'pinsp', 've', 'etco2', 'fio2']);
     expect(labels('abg |').slice(0, 4)).toEqual(['ph', 'pco2', 'po2', 'hco3']);
   });
 

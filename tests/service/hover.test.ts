@@ -115,6 +115,15 @@ describe('hover on a key, value or unit', () => {
     expect(markdown('place alti|tude 1650 m')).toContain('until a later `place` line replaces the place');
   });
 
+  it('describes the set inspiratory pressure as a setting above PEEP that carries forward', () => {
+    const md = markdown('vent mode PC, pin|sp 18, peep 8');
+    expect(md).toContain('**Set inspiratory pressure**');
+    expect(md).toContain('above PEEP');
+    expect(md).toContain('**18 cmH2O**');
+    expect(md).toContain('Carries forward: yes');
+    expect(md).not.toContain('LOINC'); // no code found on a LOINC or HL7 page
+  });
+
   it('says a header value comes from the header, and what a value feeds', () => {
     expect(markdown(note('patient ag|e 64 y', '@ 08:00'))).toContain('From the header, line 1.');
     const md = markdown(note('@ 08:00', 'oxygen room air', 'abg po|2 71, pco2 40'));

@@ -3,8 +3,8 @@
  * stands in the way (unknown key, unknown or disallowed unit, a number that only makes
  * sense in another unit).
  */
-import { canonicalWord, FIELDS, keysInSection, type FieldDef } from '../fields/registry';
-import { SECTIONS, type SectionId } from '../fields/sections';
+import { canonicalWord, fieldFor, FIELDS, keysInSection, type FieldDef } from '../fields/registry';
+import { sectionById, SECTIONS, type SectionId } from '../fields/sections';
 import { convert, HB_MMOL_PER_L, unitById, UNITS, unitsForSpelling, type UnitDef } from '../fields/units';
 import type { ItemNode, LineFix, PairValue, Span } from '../syntax/tree';
 import { inchesAfterFeet, pairNumbers, thousandsReading } from '../syntax/parser';
@@ -344,7 +344,8 @@ function unknownKeyIssue(item: ItemNode, section: SectionId, line: number, lineI
   // unknown key, and is offered the devices it is near.
   const devices = section === 'oxygen' && lineItems[0] === item ? nearDevices(key.text) : [];
   const renamed = endExpiratoryName(key.text, section, lineItems);
-  const near = renamed !== null ? [renamed] : [...devices, ...closest(key.text, keysInSection(section))].slice(0, 3);
+  const keys = renamed !== null ? { near: [renamed], setAside: false } : settingsBeforeReadings(key.text, section, closest(key.text, keysInSection(section), Infinity));
+  const near = renamed !== null ? keys.near : [...devices, ...keys.near].slice(0, 3);
   const elsewhere = FIELDS.filter((f) => f.aliases.includes(key.text.toLowerCase())).flatMap((f) => f.sections);
   const where = elsewhere.length > 0 ? ` (\`${key.text}\` belongs on a ${[...new Set(elsewhere)].join(' or ')} line)` : '';
   const hint = near.length > 0 ? ` Did you mean ${near.map((k) => `\`${k}\``).join(' or ')}?` : '';
@@ -353,8 +354,27 @@ function unknownKeyIssue(item: ItemNode, section: SectionId, line: number, lineI
     line,
     span: key.span,
     message: `\`${key.text}\` is ${devices.length > 0 ? 'neither a device nor a key' : 'not a key'} of ${section} lines${where}.${hint}`,
-    fixes: near.map((k) => ({ title: `Change to \`${k}\``, edits: [{ span: key.span, newText: k }], preferred: near.length === 1 && safeKeyFix(key.text.toLowerCase(), k.toLowerCase()) })),
+    // With a reading set aside the word was as near a key of another kind: never a fix applied unasked.
+    fixes: near.map((k) => ({ title: `Change to \`${k}\``, edits: [{ span: key.span, newText: k }], preferred: near.length === 1 && !keys.setAside && safeKeyFix(key.text.toLowerCase(), k.toLowerCase()) })),
   };
+}
+
+/**
+ * The keys offered for an unknown key of a setting line, nearest first, without the readings
+ * (values measured on the device: `pip`, the peak pressure) that a setting is at least as near:
+ * a fix that turns a setting into a reading changes what the number means (a set inspiratory
+ * pressure of 18 read as a measured peak; our rule, no source). `pinp` is one letter from both
+ * `pinsp` and `pip`, and is offered `pinsp` (and `peep`, two letters off), not `pip`. A reading
+ * nearer than every setting stays (`ppeek`, `ppeak`). `setAside` says whether a reading was left out.
+ */
+function settingsBeforeReadings(written: string, section: SectionId, near: readonly string[]): { near: readonly string[]; setAside: boolean } {
+  if (sectionById(section).kind !== 'setting' || near.length < 2) return { near, setAside: false };
+  const w = written.toLowerCase();
+  let nearestSetting = Infinity;
+  for (const k of near) if (fieldFor(section, k)?.reading !== true) nearestSetting = Math.min(nearestSetting, editDistance(w, k.toLowerCase()));
+  if (nearestSetting === Infinity) return { near, setAside: false };
+  const kept = near.filter((k) => fieldFor(section, k)?.reading !== true || editDistance(w, k.toLowerCase()) < nearestSetting);
+  return { near: kept, setAside: kept.length < near.length };
 }
 
 /**

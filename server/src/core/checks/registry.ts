@@ -19,6 +19,7 @@ import { birthDate, calendarDate, emailAddress, phoneNumber, possibleName, posta
 import { timeGoesBack } from './time-order';
 import { rateBelowSet, setRateZero } from './rate-order';
 import { amplitudeOutsideHfov } from './oscillation';
+import { peakNearAbsolutePinsp } from './insp-pressure';
 import { fio2OnRoomAirCheck, flowOnRoomAirCheck } from './room-air-flow';
 import { bareHbBesideMmolCheck } from './hb-units';
 import { therapyOverlap } from './therapy-overlap';
@@ -55,6 +56,7 @@ export const CHECKS: readonly CheckDef[] = validateCheckList([
   peepAbovePeak,
   epapAboveIpap,
   fio2OnRoomAirCheck,
+  peakNearAbsolutePinsp,
   bareHbBesideMmolCheck,
   pao2AboveAlveolar,
   gasInconsistent,

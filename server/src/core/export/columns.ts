@@ -18,7 +18,8 @@
  *   the order added: mechanical_power_surrogate_J_min, amplitude_cmH2O, base_excess_venous_mmol_L
  *   (a field stated on another kind of line, whose value is another one: see `COLUMN_SECTION`),
  *   mean_arterial_pressure_mmHg (estimated from the blood pressure), paco2_etco2_difference_mmHg,
- *   mean_bp_mmHg (a mean arterial pressure as measured).
+ *   mean_bp_mmHg (a mean arterial pressure as measured), insp_pressure_cmH2O (the set inspiratory
+ *   pressure of pressure control, above PEEP).
  *
  * Cells:
  * - Field values are those in force at the timepoint: stated there, carried from an earlier
@@ -398,6 +399,7 @@ const ADDED_LATER: readonly { readonly kind: 'field' | 'derived'; readonly id: s
   { kind: 'derived', id: 'mean_arterial_pressure' },
   { kind: 'derived', id: 'paco2_etco2_difference' },
   { kind: 'field', id: 'mean_bp' },
+  { kind: 'field', id: 'insp_pressure' },
 ];
 
 function buildColumns(): readonly Column[] {
