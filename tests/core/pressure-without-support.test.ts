@@ -51,8 +51,8 @@ describe('a pressure of NIV or CPAP beside a device that gives none (PN318)', ()
     expect(pn318('@ 08:00\noxygen mask, epap 6\n@ 09:00\nvitals hr 80\n@ 10:00\nabg 7.40/40/80/24').map((f) => f.range.start.line)).toEqual([1]);
   });
 
-  it('stays silent on NIV and CPAP, and on pressures without a device (read as NIV or CPAP)', () => {
-    for (const line of ['oxygen niv ipap 12 epap 6', 'oxygen bilevel ipap 12, epap 6', 'oxygen cpap level 8', 'oxygen cpap 8', 'oxygen epap 6', 'oxygen ipap 12, fio2 0.4', 'oxygen level 8, fio2 0.5', 'oxygen mask, fio2 0.5', 'oxygen hfnc 50, fio2 0.6']) {
+  it('stays silent on NIV and CPAP, on pressures without a device (read as NIV or CPAP), and on a pressure of 0 (none, as the device gives)', () => {
+    for (const line of ['oxygen niv ipap 12 epap 6', 'oxygen bilevel ipap 12, epap 6', 'oxygen cpap level 8', 'oxygen cpap 8', 'oxygen epap 6', 'oxygen ipap 12, fio2 0.4', 'oxygen level 8, fio2 0.5', 'oxygen mask, fio2 0.5', 'oxygen hfnc 50, fio2 0.6', 'oxygen room air, epap 0', 'oxygen mask, level 0']) {
       expect(pn318(`@ 08:00\n${line}`), line).toEqual([]);
     }
   });
@@ -60,9 +60,9 @@ describe('a pressure of NIV or CPAP beside a device that gives none (PN318)', ()
   it('offers to name the support as the device, and to remove the pressure; each fix leaves the line without PN318', () => {
     const text = '@ 08:00\noxygen mask, epap 6, fio2 0.5\n@ 09:00\noxygen cannula flow 2 level 8 # a remark\n@ 10:00\noxygen hfnc flow 50 fio2 0.6 ipap 12';
     const [epap, level, ipap] = pn318(text);
-    expect(epap?.fixes.map((x) => x.title)).toEqual(['Write `niv` as the device', 'Remove `epap 6`']);
-    expect(level?.fixes.map((x) => x.title)).toEqual(['Write `cpap` as the device', 'Remove `level 8`']);
-    expect(ipap?.fixes.map((x) => x.title)).toEqual(['Write `niv` as the device', 'Remove `ipap 12`']);
+    expect(epap?.fixes.map((x) => x.title)).toEqual(['Change the device to `niv`', 'Remove `epap 6`']);
+    expect(level?.fixes.map((x) => x.title)).toEqual(['Change the device to `cpap`', 'Remove `level 8`']);
+    expect(ipap?.fixes.map((x) => x.title)).toEqual(['Change the device to `niv`', 'Remove `ipap 12`']);
     const lines = (fixed: string, line: number) => fixed.split('\n')[line];
     expect(lines(applyEdits(text, epap!.fixes[0]!.edits), 1)).toBe('oxygen niv, epap 6, fio2 0.5');
     expect(lines(applyEdits(text, epap!.fixes[1]!.edits), 1)).toBe('oxygen mask, fio2 0.5');
@@ -74,10 +74,20 @@ describe('a pressure of NIV or CPAP beside a device that gives none (PN318)', ()
       const after = checkNote(applyEdits(text, fix.edits)).findings.filter((x) => x.code === 'PN318' && x.range.start.line === f.range.start.line);
       expect(after, fix.title).toEqual([]);
     }
+    // After `cpap` a bare number is the level, not a flow: naming CPAP keys the flow of the device.
+    const flowed = '@ 08:00\noxygen cannula 2, level 8';
+    expect(applyEdits(flowed, pn318(flowed)[0]!.fixes[0]!.edits)).toBe('@ 08:00\noxygen cpap flow 2, level 8');
     // A device written with its key is replaced in place; a fix is not safe to apply unseen.
     const keyed = pn318('@ 08:00\noxygen device mask, epap 6')[0]!;
     expect(applyEdits('@ 08:00\noxygen device mask, epap 6', keyed.fixes[0]!.edits)).toBe('@ 08:00\noxygen device niv, epap 6');
     expect(keyed.fixes.some((x) => x.preferred === true)).toBe(false);
+  });
+
+  it('does not offer to name the support where its pressures would then be out of order (PN315, PN314)', () => {
+    const titles = (text: string) => pn318(text).map((f) => f.fixes.map((x) => x.title));
+    expect(titles('@ 08:00\noxygen mask, ipap 6, epap 12')).toEqual([['Remove `ipap 6`'], ['Remove `epap 12`']]);
+    expect(titles('@ 08:00\noxygen mask, epap 12\nvent peak 10')).toEqual([['Remove `epap 12`']]);
+    expect(titles('@ 08:00\noxygen mask, ipap 12, epap 6\nvent peak 14')).toEqual([['Change the device to `niv`', 'Remove `ipap 12`'], ['Change the device to `niv`', 'Remove `epap 6`']]);
   });
 });
 
@@ -109,12 +119,12 @@ describe('a pressure PN318 reports is not used', () => {
     expect(derivation(withReadings('oxygen niv epap 5, fio2 0.4')).derived.find((v) => v.id === 'driving_pressure')?.value).toBe(11);
   });
 
-  it('`show` and the hover of the plateau say so', async () => {
+  it('`show` and the hover of the timepoint say so', async () => {
     const text = withReadings('oxygen mask, epap 5, fio2 0.4');
     const io = memoryIo({ stdin: text });
     await run(['show', '-'], io);
     expect(io.out()).toContain('missing  add a device that gives the epap on line 3 (niv: mask gives no set airway pressure, see PN318) to get ΔP');
-    const { result, position } = noteAt(text.replace('plateau 16', 'plateau 1|6'));
+    const { result, position } = noteAt(text.replace('@ 08:00', '@ 0|8:00'));
     expect(hoverAt(result, position)?.markdown ?? '').toContain('add a device that gives the epap on line 3 (niv: mask gives no set airway pressure, see PN318) to get ΔP');
   });
 

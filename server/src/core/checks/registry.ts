@@ -20,6 +20,7 @@ import { timeGoesBack } from './time-order';
 import { rateBelowSet, setRateZero } from './rate-order';
 import { amplitudeOutsideHfov } from './oscillation';
 import { fio2OnRoomAirCheck, flowOnRoomAirCheck } from './room-air-flow';
+import { pressureWithoutSupport } from './pressure-without-support';
 import { bareHbBesideMmolCheck } from './hb-units';
 import { therapyOverlap } from './therapy-overlap';
 import { unusualBlank } from './unusual-blank';
@@ -55,6 +56,7 @@ export const CHECKS: readonly CheckDef[] = validateCheckList([
   peepAbovePeak,
   epapAboveIpap,
   fio2OnRoomAirCheck,
+  pressureWithoutSupport,
   bareHbBesideMmolCheck,
   pao2AboveAlveolar,
   gasInconsistent,
