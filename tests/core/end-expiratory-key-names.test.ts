@@ -26,4 +26,17 @@ describe('names of the end-expiratory pressure on the wrong line', () => {
     expect(pn201('@ 08:00\noxygen niv ipap 14, peep 6')[0]?.fixes.map((x) => x.title)).toEqual(['Change to `epap`']);
     expect(pn201('@ 08:00\noxygen cpap, peep 8, fio2 0.5')[0]?.fixes.map((x) => x.title)).toEqual(['Change to `level`']);
   });
+
+  // A device that gives no set airway pressure (a mask, a reservoir mask, high flow) has no name for
+  // one: an `epap` there is reported in turn (PN318) and not used, so it is not offered.
+  it('`oxygen mask, peep 6`: offered no `epap` or `level`, which the device does not give either', () => {
+    for (const line of ['oxygen mask, peep 6', 'oxygen nrb 15, peep 6', 'oxygen hfnc 40, fio2 0.5, peep 5', 'oxygen room air, peep 5']) {
+      const [f] = pn201(`@ 08:00\n${line}`);
+      expect(f?.message, line).toBe('`peep` is not a key of oxygen lines (`peep` belongs on a vent line).');
+      expect(f?.fixes, line).toEqual([]);
+    }
+    // With no device, an EPAP makes the line NIV: offered as before, and so beside `bilevel`.
+    expect(pn201('@ 08:00\noxygen peep 6, fio2 0.4')[0]?.fixes.map((x) => x.title)).toEqual(['Change to `epap`']);
+    expect(pn201('@ 08:00\noxygen bilevel ipap 12, peep 5')[0]?.fixes.map((x) => x.title)).toEqual(['Change to `epap`']);
+  });
 });

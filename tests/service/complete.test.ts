@@ -209,6 +209,14 @@ describe('units', () => {
     expect(labels('oxygen mask, |')).toEqual(['flow', 'fio2']);
   });
 
+  it('offers no pressure of NIV or CPAP beside any device that gives none (PN318 would report it), however the device is written', () => {
+    for (const device of ['cannula', 'nc', 'mask', 'venturi', 'reservoir', 'nrb', 'hfnc', 'highflow', 'room air', 'ra']) {
+      const offered = labels(`oxygen ${device}, |`);
+      for (const key of ['ipap', 'epap', 'level', 'pressure']) expect(offered, `${device}: ${key}`).not.toContain(key);
+    }
+    expect(labels('oxygen bilevel |')).toEqual(['flow', 'fio2', 'ipap', 'epap']);
+  });
+
   it('offers a section\'s own keys first, then those it shares with other lines', () => {
     expect(labels('vent |')).toEqual(['mode', 'vt', 'rate', 'peep', 'plateau', 'peak', 'flow', 'map', 'amplitude', 'ps', 'pinsp', 've', 'etco2', 'fio2']);
     expect(labels('abg |').slice(0, 4)).toEqual(['ph', 'pco2', 'po2', 'hco3']);

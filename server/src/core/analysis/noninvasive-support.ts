@@ -5,6 +5,7 @@
  * power (not worked out under either, and says which) and the FHIR export (no code of a set tidal
  * volume on a measured one).
  */
+import type { StatedValue, ValuesInForce } from './model';
 
 /** Non-invasive support that gives breaths: bilevel ventilation (`niv`) or continuous pressure (`cpap`). */
 export type NoninvasiveSupport = 'niv' | 'cpap';
@@ -40,4 +41,57 @@ export function noninvasiveSupport(device: string | null, held: HeldFields): Non
   if (device !== null) return device === 'niv' || device === 'cpap' ? device : null;
   if (held.has('ipap') || held.has('epap')) return 'niv';
   return held.has('cpap_level') ? 'cpap' : null;
+}
+
+/** The oxygen-line pressures each support gives: IPAP and EPAP under NIV, one level under CPAP. */
+export const SUPPORT_PRESSURES: Readonly<Record<NoninvasiveSupport, readonly string[]>> = { niv: ['ipap', 'epap'], cpap: ['cpap_level'] };
+
+/** The fields of those pressures, in the order they are asked about. */
+export const SUPPORT_PRESSURE_FIELDS: readonly string[] = ['ipap', 'epap', 'cpap_level'];
+
+/** The support a pressure field belongs to (`niv` for IPAP and EPAP, `cpap` for the level); null for another field. */
+export function supportOfPressure(fieldId: string): NoninvasiveSupport | null {
+  return fieldId === 'cpap_level' ? 'cpap' : fieldId === 'ipap' || fieldId === 'epap' ? 'niv' : null;
+}
+
+/** Nothing held: asked of the rule where only the device decides. */
+const NOTHING_HELD: HeldFields = { has: () => false };
+
+/**
+ * Whether an oxygen line whose device is `device` gives no set airway pressure: a device is named and
+ * the rule above reads it as neither NIV nor CPAP (room air, a cannula, a mask, a venturi or
+ * reservoir mask, high flow). An IPAP, an EPAP or a CPAP level written on such a line (`oxygen mask,
+ * epap 6`) is reported (PN318) and not used: not as the end-expiratory pressure (driving pressure,
+ * the compliances, the Berlin band reading) and not compared with a peak or with each other, until
+ * the line names the support (`niv`, `cpap`) or drops the pressure. The exports keep it as written.
+ */
+export function givesNoSetPressure(device: string | null): boolean {
+  return device !== null && noninvasiveSupport(device, NOTHING_HELD) === null;
+}
+
+/**
+ * The device of the oxygen line of `pressure` (an IPAP, an EPAP or a CPAP level stated at a
+ * timepoint; `stated` the values stated there) when that device gives no set airway pressure
+ * (`givesNoSetPressure`, PN318) and the pressure is not 0; else null. The device is the one written
+ * on the pressure's line.
+ */
+export function deviceWithoutPressure(stated: readonly StatedValue[], pressure: StatedValue): StatedValue | null {
+  // A pressure of 0 is no pressure, which such a device agrees with (`oxygen room air, epap 0`).
+  if (pressure.section !== 'oxygen' || pressure.value === 0 || supportOfPressure(pressure.fieldId) === null) return null;
+  // The last device of the line, as the values in force take it (a device written twice is PN206).
+  for (let i = stated.length - 1; i >= 0; i--) {
+    const s = stated[i]!;
+    if (s.line === pressure.line && s.fieldId === 'device' && s.section === 'oxygen') return givesNoSetPressure(s.word) ? s : null;
+  }
+  return null;
+}
+
+/**
+ * Whether the pressures of the oxygen line in force at a timepoint are ones its device gives none of
+ * (PN318: `givesNoSetPressure`); the device and the pressures in force come from one oxygen line,
+ * which replaces the one before it whole. Asked without building a value where no device is in force.
+ */
+export function pressuresNotGiven(values: ValuesInForce): boolean {
+  if (values.originOf('device') === null) return false;
+  return givesNoSetPressure(values.get('device')?.stated.word ?? null);
 }

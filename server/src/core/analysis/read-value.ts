@@ -15,6 +15,7 @@ import { nearDevicePhrase } from '../fields/device-phrases';
 import { squeezeBlanks } from '../syntax/blanks';
 import { doubtBoundsAt, softBoundsAt, unitsWithin, within, type BoundsContext } from './bounds';
 import type { StatedValue } from './model';
+import { givesNoSetPressure, noninvasiveSupport, SUPPORT_PRESSURE_FIELDS } from './noninvasive-support';
 import type { ReadIssue } from './read-issues';
 
 export interface ReadContext extends BoundsContext {
@@ -344,7 +345,9 @@ function unknownKeyIssue(item: ItemNode, section: SectionId, line: number, lineI
   // unknown key, and is offered the devices it is near.
   const devices = section === 'oxygen' && lineItems[0] === item ? nearDevices(key.text) : [];
   const renamed = endExpiratoryName(key.text, section, lineItems);
-  const keys = renamed !== null ? { near: [renamed], setAside: false } : settingsBeforeReadings(key.text, section, closest(key.text, keysInSection(section), Infinity));
+  // Beside a device that gives no set airway pressure, no key of one is offered (it would be PN318).
+  const candidates = section === 'oxygen' && givesNoSetPressure(deviceOfLine(lineItems)) ? keysInSection(section).filter(isNoPressureKey) : keysInSection(section);
+  const keys = renamed !== null ? { near: [renamed], setAside: false } : settingsBeforeReadings(key.text, section, closest(key.text, candidates, Infinity));
   const near = renamed !== null ? keys.near : [...devices, ...keys.near].slice(0, 3);
   const elsewhere = FIELDS.filter((f) => f.aliases.includes(key.text.toLowerCase())).flatMap((f) => f.sections);
   const where = elsewhere.length > 0 ? ` (\`${key.text}\` belongs on a ${[...new Set(elsewhere)].join(' or ')} line)` : '';
@@ -381,16 +384,36 @@ function settingsBeforeReadings(written: string, section: SectionId, near: reado
  * The end-expiratory pressure has a name per line (format rule): `peep` on a vent line, in mode CPAP
  * too; `epap` on a NIV oxygen line; `level` on a CPAP oxygen line. For another of these names written
  * on a line that does not take it (`vent mode CPAP, cpap 8`, `oxygen niv ipap 14, peep 6`), the
- * line's own name; else null.
+ * line's own name (by the support rule: an oxygen line without a device takes `epap`); none beside a
+ * device that gives no set airway pressure (`oxygen mask, peep 6`: an `epap` there is PN318); else null.
  */
 function endExpiratoryName(key: string, section: SectionId, lineItems: readonly ItemNode[]): string | null {
   const lower = key.toLowerCase();
   if (section === 'vent') return lower === 'cpap' || lower === 'epap' ? 'peep' : null;
   if (section !== 'oxygen' || lower !== 'peep') return null;
-  let device: string | null = null;
-  for (const item of lineItems) if (item.implied === 'device' && item.value) device = item.value.text.toLowerCase();
-  return device === 'cpap' ? 'level' : 'epap';
+  const device = deviceOfLine(lineItems);
+  // A device that gives no set airway pressure has no name for one (an `epap` there is PN318).
+  if (givesNoSetPressure(device)) return null;
+  return noninvasiveSupport(device, NO_PRESSURES) === 'cpap' ? 'level' : 'epap';
 }
+
+/** The canonical device word written first on an oxygen line (`nrb` → reservoir); null when none (or not a device). */
+function deviceOfLine(lineItems: readonly ItemNode[]): string | null {
+  let device: string | null = null;
+  for (const item of lineItems) if (item.implied === 'device' && item.value && FIELD_DEVICE) device = canonicalWord(FIELD_DEVICE, item.value.text);
+  return device;
+}
+
+/** Whether a key of an oxygen line names no pressure of NIV or CPAP. */
+function isNoPressureKey(key: string): boolean {
+  const field = FIELDS.find((f) => f.sections.includes('oxygen') && f.aliases.includes(key));
+  return field === undefined || !SUPPORT_PRESSURE_FIELDS.includes(field.id);
+}
+
+/** The oxygen device field, whose words `deviceOfLine` reads. */
+const FIELD_DEVICE: FieldDef | undefined = FIELDS.find((f) => f.id === 'device');
+/** No pressures held: the rule asked of a device alone. */
+const NO_PRESSURES = { has: (): boolean => false };
 
 /** A run of words that is near a device of several words but not one: what it reads as, and where. */
 interface DevicePhrase {

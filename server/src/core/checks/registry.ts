@@ -21,6 +21,7 @@ import { rateBelowSet, setRateZero } from './rate-order';
 import { amplitudeOutsideHfov } from './oscillation';
 import { peakNearAbsolutePinsp } from './insp-pressure';
 import { fio2OnRoomAirCheck, flowOnRoomAirCheck } from './room-air-flow';
+import { pressureWithoutSupport } from './pressure-without-support';
 import { bareHbBesideMmolCheck } from './hb-units';
 import { therapyOverlap } from './therapy-overlap';
 import { unusualBlank } from './unusual-blank';
@@ -57,6 +58,7 @@ export const CHECKS: readonly CheckDef[] = validateCheckList([
   epapAboveIpap,
   fio2OnRoomAirCheck,
   peakNearAbsolutePinsp,
+  pressureWithoutSupport,
   bareHbBesideMmolCheck,
   pao2AboveAlveolar,
   gasInconsistent,

@@ -7,7 +7,7 @@ import type { InputValue, Timepoint, ValuesInForce } from '../analysis/model';
 import type { SectionId } from '../fields/sections';
 import { fieldById } from '../fields/registry';
 import { displayUnit } from '../analysis/read-value';
-import { noninvasiveSupport, type NoninvasiveSupport } from '../analysis/noninvasive-support';
+import { givesNoSetPressure, noninvasiveSupport, supportOfPressure, type NoninvasiveSupport } from '../analysis/noninvasive-support';
 import type { Settings } from '../settings';
 import { formatNumber, wordList } from '../util/format';
 import { describeOrigin, kpaResolutionMmhg } from '../present';
@@ -378,9 +378,25 @@ export class DeriveContext {
     return this.word('mode')?.word === OSCILLATION_MODE ? NO_BREATH_IN_HFOV : null;
   }
 
-  /** PEEP in force: the ventilator's, else EPAP (NIV), else the CPAP level. */
+  /**
+   * PEEP in force: the ventilator's, else EPAP (NIV), else the CPAP level; neither of the last two
+   * beside a device that gives no set airway pressure (`oxygen mask, epap 6`: PN318).
+   */
   peepLike(): Term | null {
-    return this.field('peep', 'PEEP') ?? this.field('epap', 'EPAP') ?? this.field('cpap_level', 'CPAP');
+    const peep = this.field('peep', 'PEEP');
+    if (peep) return peep;
+    const pressure = this.field('epap', 'EPAP') ?? this.field('cpap_level', 'CPAP');
+    // A pressure of 0 is none, which such a device agrees with: it is used (PN318 does not fire).
+    return pressure === null || (pressure.value !== 0 && this.pressureNotGiven() !== null) ? null : pressure;
+  }
+
+  /**
+   * Where the oxygen line in force names a device that gives no set airway pressure (PN318) and
+   * writes an EPAP or a CPAP level all the same: that device; else null.
+   */
+  private pressureNotGiven(): { word: string; input: InputValue } | null {
+    const device = this.word('device');
+    return device !== null && givesNoSetPressure(device.word) ? device : null;
   }
 
   /** The non-invasive support of the oxygen line in force (`noninvasiveSupport`), or null. */
@@ -391,11 +407,18 @@ export class DeriveContext {
   /**
    * What to add for the end-expiratory pressure `peepLike` reads, where none is in force: under NIV
    * or CPAP of an oxygen line, the EPAP or the CPAP level on that line (a `peep` would go on a vent
-   * line, and a vent line with a setting ends the support); else `peep`.
+   * line, and a vent line with a setting ends the support); beside a device that gives no set
+   * airway pressure, the device that gives the EPAP or CPAP level written there (PN318); else `peep`.
    */
   peepNeed(): string {
     const support = this.noninvasiveSupport();
-    return support === null ? 'peep' : END_EXPIRATORY_NEED[support];
+    if (support !== null) return END_EXPIRATORY_NEED[support];
+    // An EPAP or a CPAP level beside a device that gives none (PN318): the device is what to mend.
+    const device = this.pressureNotGiven();
+    const pressure = device === null ? null : this.input('epap') ?? this.input('cpap_level');
+    if (device === null || pressure === null) return 'peep';
+    const written = pressure.stated.fieldId === 'epap' ? 'epap' : 'CPAP level';
+    return `a device that gives the ${written} on line ${pressure.stated.line + 1} (${supportOfPressure(pressure.stated.fieldId)}: ${device.word} gives no set airway pressure, see PN318)`;
   }
 
   value(value: number | null, terms: readonly (Term | null)[], extra: ValueExtras = NO_EXTRAS): Outcome {

@@ -27,6 +27,8 @@ import { parseLine } from '../syntax/parser';
 import type { ItemNode, LineNode } from '../syntax/tree';
 import type { Position, Range } from '../types';
 import { ITEM_COLUMN } from './format';
+import { noninvasiveSupport, SUPPORT_PRESSURE_FIELDS, SUPPORT_PRESSURES } from '../analysis/noninvasive-support';
+import { NONE } from '../util/lists';
 import { isValidPosition, itemAt, lineAt, lineRange } from './locate';
 import type { StatedValue } from '../analysis/model';
 import type { GasUnit } from './unit-conversion';
@@ -290,17 +292,21 @@ function shorthandSnippet(section: SectionId, replace: Range): CompletionInfo {
   };
 }
 
-/** The pressures each oxygen device sets (others set none). */
-const DEVICE_PRESSURES: Readonly<Record<string, readonly string[]>> = { niv: ['ipap', 'epap'], cpap: ['cpap_level'] };
-const PRESSURES: readonly string[] = ['ipap', 'epap', 'cpap_level'];
-
-/** Oxygen-line fields that do not go with a device: its pressures aside, and for room air the flow too. */
+/**
+ * Oxygen-line fields that do not go with a device: the pressures of another support than the
+ * device's (none for a device that gives no set airway pressure: PN318, by the one rule of
+ * `noninvasiveSupport`), and for room air the flow too.
+ */
 function notForDevice(device: string | null): readonly string[] {
   if (device === null) return [];
-  const own = DEVICE_PRESSURES[device] ?? [];
-  const others = PRESSURES.filter((id) => !own.includes(id));
+  const support = noninvasiveSupport(device, NOTHING_HELD);
+  const own = support === null ? NONE : SUPPORT_PRESSURES[support];
+  const others = SUPPORT_PRESSURE_FIELDS.filter((id) => !own.includes(id));
   return device === 'room air' ? ['o2_flow', ...others] : others;
 }
+
+/** No pressures held: the support rule asked of the device alone. */
+const NOTHING_HELD = { has: (): boolean => false };
 
 /** The canonical device word of an oxygen line (`ra` → room air), null when none is written yet. */
 function deviceOnLine(items: readonly ItemNode[]): string | null {

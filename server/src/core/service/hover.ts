@@ -9,6 +9,7 @@
 import type { NoteResult } from '../check-note';
 import type { StatedValue, Timepoint } from '../analysis/model';
 import { displayUnit } from '../analysis/read-value';
+import { deviceWithoutPressure } from '../analysis/noninvasive-support';
 import { withheldText, type DerivedValue, type NotApplicable, type TimepointDerivation } from '../derive/model';
 import { derivedDef, withheldByReason } from '../derive/registry';
 import { shortAsName } from '../derive/context';
@@ -89,7 +90,7 @@ function fieldMarkdown(result: NoteResult, node: SectionLine, hit: ItemHit): str
   const head = `**${escapeMarkdown(field.label)}** — ${keyWords} on this ${code(node.section)} line`;
   const parts: (string | null)[] = [head, describedMarkdown(field.description)];
   if (stated) {
-    parts.push(valueText(stated, showsKpaOnLine(result, stated.line)), unitText(result, stated, field), originText(result, stated), usableText(stated, field), feedsText(result, stated));
+    parts.push(valueText(stated, showsKpaOnLine(result, stated.line)), unitText(result, stated, field), originText(result, stated), usableText(stated, field), notGivenText(result, stated), feedsText(result, stated));
   } else if (hit.item.value) {
     parts.push(`${code(hit.item.value.text)} could not be read as ${escapeMarkdown(field.label)}.`);
   }
@@ -205,6 +206,15 @@ function usableText(s: StatedValue, field: FieldDef): string | null {
   if (field.kind === 'word') return 'Not used in calculations: the word is not known.';
   if (!s.readUnit) return `Not used in calculations: the unit is not one ${escapeMarkdown(field.label)} takes.`;
   return 'Not used in calculations: the value is outside what is possible.';
+}
+
+/** An IPAP, an EPAP or a CPAP level beside a device that gives no set airway pressure (PN318): why it is not used. */
+function notGivenText(result: NoteResult, s: StatedValue): string | null {
+  if (!s.usable || s.section !== 'oxygen') return null;
+  const tp = timepointOfLine(result, s.line);
+  const device = tp ? deviceWithoutPressure(tp.stated, s) : null;
+  if (device === null) return null;
+  return `Not used in calculations: the device ${code(device.word ?? '')} gives no set airway pressure (PN318).`;
 }
 
 function derivationOf(result: NoteResult, tp: Timepoint): TimepointDerivation | null {
