@@ -144,6 +144,12 @@ function comparedWithValueLetRead(g: Finding, action: ActionInfo, before: NoteRe
       if (beforeLine.includes(points(item.value.text)) || convertedAsMeant(line, index, again, before)) letRead.push(line);
     });
   }
+  // A pressure of NIV or CPAP beside a device that gives none (PN318) is not used; the fix that
+  // names the support lets it be, and it may then be out of order with a peak read later
+  // (`oxygen mask, epap 12` made `niv`, then `vent peak 10` an hour later: PN314 there).
+  for (const line of new Set(action.edits.map((e) => e.range.start.line))) {
+    if (before.findings.some((f) => f.code === 'PN318' && f.range.start.line === line) && action.edits.some((e) => e.range.start.line === line && (e.newText === 'niv' || e.newText === 'cpap'))) letRead.push(line);
+  }
   if (letRead.length === 0) return false;
   const line = g.range.start.line;
   const timepointOf = (l: number) => again.analysis.timeline.timepoints.findIndex((tp) => tp.startLine <= l && l <= tp.endLine);
@@ -174,8 +180,19 @@ describe('quick fixes on generated notes', () => {
       const result = checkNote(text);
       const problems = offeredFixes(result).flatMap((a) => problemsAfter(text, result, a));
       expect(problems).toEqual([]);
-    }), { numRuns: QUICK_FIX_RUNS });
+    }), { numRuns: QUICK_FIX_RUNS, examples: [['@ 08:00\noxygen mask, epap 12\n@ 09:00\nvent peak 10\n']] });
   }, 60_000);
+
+  it('a fix that names the support lets its pressure be used, and a later contradiction it had hidden be seen', () => {
+    const text = '@ 08:00\noxygen mask, epap 12\n@ 09:00\nvent peak 10\n';
+    const result = checkNote(text);
+    expect(result.findings.map((f) => f.code)).toEqual(['PN318']);
+    const named = offeredFixes(result).find((a) => a.title === 'Change the device to `niv`');
+    expect(named).toBeDefined();
+    // The EPAP now used is above the peak read an hour later: an error of the note, not of the fix.
+    expect(checkNote(applyEdits(text, named!.edits)).findings.map((f) => `${f.code}@${f.range.start.line}`)).toEqual(['PN314@3']);
+    expect(problemsAfter(text, result, named!)).toEqual([]);
+  });
 });
 
 describe('a fix that would trade one problem for another', () => {
