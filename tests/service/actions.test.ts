@@ -9,6 +9,7 @@ import { checkNote, type NoteResult } from '../../server/src/core/check-note';
 import type { StatedValue } from '../../server/src/core/analysis/model';
 import { within, withinAsWritten } from '../../server/src/core/analysis/bounds';
 import { fieldById } from '../../server/src/core/fields/registry';
+import { displayUnit } from '../../server/src/core/analysis/read-value';
 import { applyEdits, codeActions, convertNoteUnits, editsOverlap, keepsValues, type ActionInfo, type GasUnit } from '../../server/src/core/service';
 import { FIX_CHECKS_PER_LINE } from '../../server/src/core/service/actions';
 import type { TextEdit } from '../../server/src/core/types';
@@ -86,6 +87,18 @@ describe('the value under the cursor in the other unit', () => {
     expect(after('vitals temp 101.1 |F', 'Write temp in C')).toBe('vitals temp 38.4 C');
     expect(after('vitals temp 38.4|C', 'Write temp in F')).toBe('vitals temp 101.1F');
     expect(after('labs hb 11.|8', 'Write hb in g/L')).toBe('labs hb 118 g/L');
+  });
+
+  // Hb in mmol/L by the molar mass of the monomer, 16,114.5 g/mol: 1 mmol/L = 1.61145 g/dL (from
+  // memory; the reading is checked against @lhncbc/ucum-lhc in tests/core/hb-units.test.ts).
+  it('Hb g/dL ↔ mmol/L, both ways, beside g/L', () => {
+    expect(after('labs hb 9.|0 mmol/L', 'Write hb in g/dL')).toBe('labs hb 14.5 g/dL');
+    expect(after('labs hb 14.|5 g/dL', 'Write hb in mmol/L')).toBe('labs hb 9.0 mmol/L');
+    // 9.3 mmol/L is 14.99 g/dL: written 15.0, which reads back as 9.3 mmol/L.
+    expect(after('labs hb 9.|3 mmol/L', 'Write hb in g/dL')).toBe('labs hb 15.0 g/dL');
+    expect(after('labs hb 15.|0 g/dL', 'Write hb in mmol/L')).toBe('labs hb 9.3 mmol/L');
+    const { result, range } = noteAt('@ 08:00\nlabs hb 14.|5 g/dL');
+    expect(codeActions(result, range).map((a) => a.title).filter((t) => t.startsWith('Write'))).toEqual(['Write hb in g/L: 145 g/L', 'Write hb in mmol/L: 9.0 mmol/L']);
   });
 
   it('a shorthand gas converts both pressures and its unit together', () => {
@@ -473,7 +486,7 @@ describe('action properties', () => {
   }, 60_000);
 
   /** Decimals a value is usually written with in each unit (more than these cannot always come back from a coarser unit). */
-  const USUAL_DECIMALS: Readonly<Record<string, number>> = { kPa: 1, mmHg: 0, fraction: 2, '%': 1, C: 1, F: 1, 'g/dL': 1, 'g/L': 0 };
+  const USUAL_DECIMALS: Readonly<Record<string, number>> = { kPa: 1, mmHg: 0, fraction: 2, '%': 1, C: 1, F: 1, 'g/dL': 1, 'g/L': 0, 'mmolHb/L': 1 };
 
   it(`a value written in the other unit and back is the number the note wrote (${ACTION_RUNS} generated notes)`, () => {
     fc.assert(fc.property(notes, (text) => {
@@ -484,24 +497,26 @@ describe('action properties', () => {
         const writtenDecimals = asWritten.includes('.') ? asWritten.length - asWritten.indexOf('.') - 1 : 0;
         if (writtenDecimals > (USUAL_DECIMALS[s.readUnit] ?? 0)) continue;
         const at = { line: s.line, character: s.item.value.span.start };
-        const there = codeActions(result, { start: at, end: at }).find((a) => /^Write \S+ (in|as) /.test(a.title));
-        if (!there) continue;
-        const converted = applyEdits(text, there.edits);
-        const again = checkNote(converted);
-        const item = again.analysis.tree.lines[s.line]?.kind === 'section' ? stated(again).find((o) => o.line === s.line && o.item.span.start === s.item.span.start) : undefined;
-        expect(item?.item.value, there.title).toBeTruthy();
-        const back = codeActions(again, { start: { line: s.line, character: item!.item.value!.span.start }, end: { line: s.line, character: item!.item.value!.span.start } }).find((a) => /^Write \S+ (in|as) /.test(a.title));
-        // One way by design: a rate written in Hz outside HFOV is offered /min, and a rate in /min
-        // outside HFOV is never offered Hz (tests/service/hz-rate-outside-hfov.test.ts).
-        if (s.fieldId === 'vent_rate' && s.readUnit === 'Hz') { expect(back, `${there.title}: no way back to Hz`).toBeUndefined(); continue; }
-        expect(back, `${there.title}: and back`).toBeDefined();
-        const returned = checkNote(applyEdits(converted, back!.edits)).analysis.tree.lines[s.line];
-        const value = returned?.kind === 'section' ? returned.items.find((i) => i.span.start === s.item.span.start)?.value?.text : undefined;
-        const written = s.item.value.text.replace(',', '.');
-        const decimals = written.includes('.') ? written.length - written.indexOf('.') - 1 : 0;
-        expect(Number(value).toFixed(decimals), `${JSON.stringify(text.split(/\r\n|\r|\n/)[s.line])}: ${there.title}, then ${back!.title}`).toBe(Number(written).toFixed(decimals));
+        // Every unit the value is offered (Hb in g/dL: g/L and mmol/L), and back to the one it was written in.
+        const backTitle = s.readUnit === 'fraction' ? 'as a fraction:' : `in ${displayUnit(s.readUnit)}:`;
+        for (const there of codeActions(result, { start: at, end: at }).filter((a) => /^Write \S+ (in|as) /.test(a.title))) {
+          const converted = applyEdits(text, there.edits);
+          const again = checkNote(converted);
+          const item = again.analysis.tree.lines[s.line]?.kind === 'section' ? stated(again).find((o) => o.line === s.line && o.item.span.start === s.item.span.start) : undefined;
+          expect(item?.item.value, there.title).toBeTruthy();
+          const back = codeActions(again, { start: { line: s.line, character: item!.item.value!.span.start }, end: { line: s.line, character: item!.item.value!.span.start } }).find((a) => /^Write \S+ (in|as) /.test(a.title) && a.title.includes(` ${backTitle}`));
+          // One way by design: a rate written in Hz outside HFOV is offered /min, and a rate in /min
+          // outside HFOV is never offered Hz (tests/service/hz-rate-outside-hfov.test.ts).
+          if (s.fieldId === 'vent_rate' && s.readUnit === 'Hz') { expect(back, `${there.title}: no way back to Hz`).toBeUndefined(); continue; }
+          expect(back, `${there.title}: and back`).toBeDefined();
+          const returned = checkNote(applyEdits(converted, back!.edits)).analysis.tree.lines[s.line];
+          const value = returned?.kind === 'section' ? returned.items.find((i) => i.span.start === s.item.span.start)?.value?.text : undefined;
+          const written = s.item.value.text.replace(',', '.');
+          const decimals = written.includes('.') ? written.length - written.indexOf('.') - 1 : 0;
+          expect(Number(value).toFixed(decimals), `${JSON.stringify(text.split(/\r\n|\r|\n/)[s.line])}: ${there.title}, then ${back!.title}`).toBe(Number(written).toFixed(decimals));
+        }
       }
-    }), { numRuns: ACTION_RUNS, examples: [['@ 08:00\nvent rate 1 hz,\n'], ['@ 08:00\nvent mode VC, rate 0 Hz\n']] });
+    }), { numRuns: ACTION_RUNS, examples: [['@ 08:00\nvent rate 1 hz,\n'], ['@ 08:00\nvent mode VC, rate 0 Hz\n'], ['@ 08:00\nlabs hb 9.3 mmol/L, hb 14.5 g/dL\n'], ['@ 08:00\nabg ph 7.30, hb 8 mmol/l\n']] });
   });
 
   const isOrdinary = (v: StatedValue) => {

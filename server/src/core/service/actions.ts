@@ -21,7 +21,7 @@ import { parseLine } from '../syntax/parser';
 import type { LineNode } from '../syntax/tree';
 import { applyEdits, editsOverlap } from './text-edits';
 import { displayUnit } from '../analysis/read-value';
-import { convertNoteUnits, itemConversionEdits, numberIn, otherUnit, shorthandConversionEdits, shorthandPressures, type GasUnit } from './unit-conversion';
+import { convertNoteUnits, itemConversionEdits, numberIn, otherUnits, shorthandConversionEdits, shorthandPressures, type GasUnit } from './unit-conversion';
 import type { ActionInfo } from './types';
 import { pushAll } from '../util/lists';
 import { convert, unitById, unitsForSpelling, type UnitDef } from '../fields/units';
@@ -70,7 +70,7 @@ function valueActions(result: NoteResult, range: Range): ActionInfo[] {
       if (hit.item.implied === 'shorthand') {
         pushAll(out, shorthandActions(result, line));
       } else {
-        pushAll(out, conversionAction(stated));
+        pushAll(out, conversionActions(stated));
         pushAll(out, rateInPerMinuteAction(result, stated));
         pushAll(out, addUnitAction(result, stated));
       }
@@ -97,15 +97,18 @@ function keyOf(s: StatedValue): string {
   return s.item.key?.text ?? s.item.keyName;
 }
 
-function conversionAction(s: StatedValue): ActionInfo[] {
-  const to = otherUnit(s);
-  const field = s.field;
-  if (!to || s.unitDoubt || !s.usable) return [];
-  const edits = itemConversionEdits(s.line, s, to);
-  const number = numberIn(s, field, to);
-  if (!edits || number === null) return [];
-  const title = to === 'fraction' ? `Write ${keyOf(s)} as a fraction: ${number}` : `Write ${keyOf(s)} in ${displayUnit(to)}: ${number} ${displayUnit(to)}`;
-  return [{ title, kind: 'refactor.rewrite', edits }];
+/** The value written in each other unit it can be (`otherUnits`): one action per unit. */
+function conversionActions(s: StatedValue): ActionInfo[] {
+  if (s.unitDoubt || !s.usable) return [];
+  const out: ActionInfo[] = [];
+  for (const to of otherUnits(s)) {
+    const edits = itemConversionEdits(s.line, s, to);
+    const number = numberIn(s, s.field, to);
+    if (!edits || number === null) continue;
+    const title = to === 'fraction' ? `Write ${keyOf(s)} as a fraction: ${number}` : `Write ${keyOf(s)} in ${displayUnit(to)}: ${number} ${displayUnit(to)}`;
+    out.push({ title, kind: 'refactor.rewrite', edits });
+  }
+  return out;
 }
 
 /**

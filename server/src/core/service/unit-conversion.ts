@@ -4,7 +4,7 @@
  * pressure of a note in mmHg or kPa and sets the note's `units gas` line to match.
  *
  * Rounding: kPa 1 decimal, mmHg 0, FiO2 fraction 2, FiO2 % 0 (1 when needed), °C/°F 1,
- * g/L 0, g/dL 1, and one or two more where these would not convert back to the number as
+ * g/L 0, g/dL 1, Hb mmol/L 1, and one or two more where these would not convert back to the number as
  * written (`numberIn`). A converted number always gets its unit written, except a fraction.
  */
 import { checkNote, type NoteResult } from '../check-note';
@@ -23,18 +23,22 @@ import { applyEdits } from './text-edits';
 
 export type GasUnit = 'mmHg' | 'kPa';
 
-/** Unit pairs a value can be rewritten between (canonical ↔ other). */
-const PAIRS: readonly (readonly [string, string])[] = [['mmHg', 'kPa'], ['fraction', '%'], ['C', 'F'], ['g/dL', 'g/L']];
+/**
+ * Unit pairs a value can be rewritten between, in the order the actions are offered: Hb in g/dL is
+ * offered g/L first, then mmol/L (by the molar mass of the monomer, as it is read: fields/units.ts).
+ */
+const PAIRS: readonly (readonly [string, string])[] = [['mmHg', 'kPa'], ['fraction', '%'], ['C', 'F'], ['g/dL', 'g/L'], ['g/dL', 'mmolHb/L']];
 
-/** The unit a stated value can be rewritten in, other than the one it was read in. */
-export function otherUnit(s: StatedValue): string | null {
+/** The units a stated value can be rewritten in, other than the one it was read in, in the order of PAIRS. */
+export function otherUnits(s: StatedValue): readonly string[] {
   const field = s.field;
-  if (!s.readUnit || s.value === null || field.kind !== 'number') return null;
+  if (!s.readUnit || s.value === null || field.kind !== 'number') return [];
+  const others: string[] = [];
   for (const [a, b] of PAIRS) {
     const other = s.readUnit === a ? b : s.readUnit === b ? a : null;
-    if (other && field.units?.includes(a) && field.units.includes(b)) return other;
+    if (other && field.units?.includes(a) && field.units.includes(b)) others.push(other);
   }
-  return null;
+  return others;
 }
 
 /**
