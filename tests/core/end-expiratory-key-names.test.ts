@@ -30,7 +30,7 @@ describe('names of the end-expiratory pressure on the wrong line', () => {
   // A device that gives no set airway pressure (a mask, a reservoir mask, high flow) has no name for
   // one: an `epap` there is reported in turn (PN318) and not used, so it is not offered.
   it('`oxygen mask, peep 6`: offered no `epap` or `level`, which the device does not give either', () => {
-    for (const line of ['oxygen mask, peep 6', 'oxygen nrb 15, peep 6', 'oxygen hfnc 40, fio2 0.5, peep 5', 'oxygen room air, peep 5']) {
+    for (const line of ['oxygen mask, peep 6', 'oxygen nrb 15, peep 6', 'oxygen hfnc 40, fio2 0.5, peep 5', 'oxygen room air, peep 5', 'oxygen device mask, peep 6']) {
       const [f] = pn201(`@ 08:00\n${line}`);
       expect(f?.message, line).toBe('`peep` is not a key of oxygen lines (`peep` belongs on a vent line).');
       expect(f?.fixes, line).toEqual([]);

@@ -47,7 +47,7 @@ export function noninvasiveSupport(device: string | null, held: HeldFields): Non
 export const SUPPORT_PRESSURES: Readonly<Record<NoninvasiveSupport, readonly string[]>> = { niv: ['ipap', 'epap'], cpap: ['cpap_level'] };
 
 /** The fields of those pressures, in the order they are asked about. */
-export const SUPPORT_PRESSURE_FIELDS: readonly string[] = ['ipap', 'epap', 'cpap_level'];
+export const SUPPORT_PRESSURE_FIELDS: readonly string[] = [...SUPPORT_PRESSURES.niv, ...SUPPORT_PRESSURES.cpap];
 
 /** The support a pressure field belongs to (`niv` for IPAP and EPAP, `cpap` for the level); null for another field. */
 export function supportOfPressure(fieldId: string): NoninvasiveSupport | null {
@@ -56,6 +56,11 @@ export function supportOfPressure(fieldId: string): NoninvasiveSupport | null {
 
 /** Nothing held: asked of the rule where only the device decides. */
 const NOTHING_HELD: HeldFields = { has: () => false };
+
+/** The support a device gives by itself (`noninvasiveSupport` with no pressures held): with none named, none. */
+export function supportOfDevice(device: string | null): NoninvasiveSupport | null {
+  return noninvasiveSupport(device, NOTHING_HELD);
+}
 
 /**
  * Whether an oxygen line whose device is `device` gives no set airway pressure: a device is named and
@@ -66,7 +71,7 @@ const NOTHING_HELD: HeldFields = { has: () => false };
  * the line names the support (`niv`, `cpap`) or drops the pressure. The exports keep it as written.
  */
 export function givesNoSetPressure(device: string | null): boolean {
-  return device !== null && noninvasiveSupport(device, NOTHING_HELD) === null;
+  return device !== null && supportOfDevice(device) === null;
 }
 
 /**

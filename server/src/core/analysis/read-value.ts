@@ -3,7 +3,7 @@
  * stands in the way (unknown key, unknown or disallowed unit, a number that only makes
  * sense in another unit).
  */
-import { canonicalWord, fieldFor, FIELDS, keysInSection, type FieldDef } from '../fields/registry';
+import { canonicalWord, fieldById, fieldFor, FIELDS, keysInSection, type FieldDef } from '../fields/registry';
 import { sectionById, SECTIONS, type SectionId } from '../fields/sections';
 import { convert, HB_MMOL_PER_L, unitById, UNITS, unitsForSpelling, type UnitDef } from '../fields/units';
 import type { ItemNode, LineFix, PairValue, Span } from '../syntax/tree';
@@ -15,7 +15,7 @@ import { nearDevicePhrase } from '../fields/device-phrases';
 import { squeezeBlanks } from '../syntax/blanks';
 import { doubtBoundsAt, softBoundsAt, unitsWithin, within, type BoundsContext } from './bounds';
 import type { StatedValue } from './model';
-import { givesNoSetPressure, noninvasiveSupport, SUPPORT_PRESSURE_FIELDS } from './noninvasive-support';
+import { givesNoSetPressure, supportOfDevice, SUPPORT_PRESSURE_FIELDS } from './noninvasive-support';
 import type { ReadIssue } from './read-issues';
 
 export interface ReadContext extends BoundsContext {
@@ -394,26 +394,26 @@ function endExpiratoryName(key: string, section: SectionId, lineItems: readonly 
   const device = deviceOfLine(lineItems);
   // A device that gives no set airway pressure has no name for one (an `epap` there is PN318).
   if (givesNoSetPressure(device)) return null;
-  return noninvasiveSupport(device, NO_PRESSURES) === 'cpap' ? 'level' : 'epap';
+  return supportOfDevice(device) === 'cpap' ? 'level' : 'epap';
 }
 
-/** The canonical device word written first on an oxygen line (`nrb` → reservoir); null when none (or not a device). */
-function deviceOfLine(lineItems: readonly ItemNode[]): string | null {
+/**
+ * The canonical device word of an oxygen line (`nrb` → reservoir), written first or with its key
+ * (`device mask`); the last one where a line writes two (PN206: the later is used). Null when none
+ * is written (or the word is no device). Asked by the keys offered here and by completion.
+ */
+export function deviceOfLine(lineItems: readonly ItemNode[]): string | null {
+  const field = fieldById('device');
   let device: string | null = null;
-  for (const item of lineItems) if (item.implied === 'device' && item.value && FIELD_DEVICE) device = canonicalWord(FIELD_DEVICE, item.value.text);
+  for (const item of lineItems) if (item.keyName === 'device' && item.value?.kind === 'word' && field) device = canonicalWord(field, item.value.text);
   return device;
 }
 
 /** Whether a key of an oxygen line names no pressure of NIV or CPAP. */
 function isNoPressureKey(key: string): boolean {
-  const field = FIELDS.find((f) => f.sections.includes('oxygen') && f.aliases.includes(key));
+  const field = fieldFor('oxygen', key);
   return field === undefined || !SUPPORT_PRESSURE_FIELDS.includes(field.id);
 }
-
-/** The oxygen device field, whose words `deviceOfLine` reads. */
-const FIELD_DEVICE: FieldDef | undefined = FIELDS.find((f) => f.id === 'device');
-/** No pressures held: the rule asked of a device alone. */
-const NO_PRESSURES = { has: (): boolean => false };
 
 /** A run of words that is near a device of several words but not one: what it reads as, and where. */
 interface DevicePhrase {

@@ -17,8 +17,8 @@
  * timepoint's `@` or its time.
  */
 import type { NoteResult } from '../check-note';
-import { displayUnit } from '../analysis/read-value';
-import { canonicalWord, fieldFor, fieldsInSection, type FieldDef } from '../fields/registry';
+import { deviceOfLine, displayUnit } from '../analysis/read-value';
+import { fieldFor, fieldsInSection, type FieldDef } from '../fields/registry';
 import { SECTIONS, sectionByName, type SectionDef, type SectionId } from '../fields/sections';
 import { squeezeBlanks } from '../syntax/blanks';
 import { chunkLine, isBlank, leadingNumber } from '../syntax/lexer';
@@ -27,7 +27,7 @@ import { parseLine } from '../syntax/parser';
 import type { ItemNode, LineNode } from '../syntax/tree';
 import type { Position, Range } from '../types';
 import { ITEM_COLUMN } from './format';
-import { noninvasiveSupport, SUPPORT_PRESSURE_FIELDS, SUPPORT_PRESSURES } from '../analysis/noninvasive-support';
+import { supportOfDevice, SUPPORT_PRESSURE_FIELDS, SUPPORT_PRESSURES } from '../analysis/noninvasive-support';
 import { NONE } from '../util/lists';
 import { isValidPosition, itemAt, lineAt, lineRange } from './locate';
 import type { StatedValue } from '../analysis/model';
@@ -98,7 +98,7 @@ function completionsOnLine(node: LineNode, position: Position, gasUnit: () => Ga
   const used = usedFields(section.id, lineItems, wordStart);
   // The keys that go with the line's device: room air has no flow (PN310) and no pressure, and
   // only NIV has IPAP and EPAP, only CPAP a level.
-  if (section.id === 'oxygen') for (const id of notForDevice(deviceOnLine(lineItems))) used.add(id);
+  if (section.id === 'oxygen') for (const id of notForDevice(deviceOfLine(lineItems))) used.add(id);
   // Right after a comma (`hr 80,|`, a trigger character), a key is written after a blank, as the formatter writes it.
   const glued = wordStart > 0 && text.charCodeAt(wordStart - 1) === 0x2c;
   const keys = () => narrow(keyCompletions(section.id, used, replace), typed).map((c) => (glued ? { ...c, insertText: ` ${c.insertText}` } : c));
@@ -299,20 +299,10 @@ function shorthandSnippet(section: SectionId, replace: Range): CompletionInfo {
  */
 function notForDevice(device: string | null): readonly string[] {
   if (device === null) return [];
-  const support = noninvasiveSupport(device, NOTHING_HELD);
+  const support = supportOfDevice(device);
   const own = support === null ? NONE : SUPPORT_PRESSURES[support];
   const others = SUPPORT_PRESSURE_FIELDS.filter((id) => !own.includes(id));
   return device === 'room air' ? ['o2_flow', ...others] : others;
-}
-
-/** No pressures held: the support rule asked of the device alone. */
-const NOTHING_HELD = { has: (): boolean => false };
-
-/** The canonical device word of an oxygen line (`ra` → room air), null when none is written yet. */
-function deviceOnLine(items: readonly ItemNode[]): string | null {
-  const field = fieldFor('oxygen', 'device');
-  for (const i of items) if (i.keyName === 'device' && i.value?.kind === 'word') return field ? canonicalWord(field, i.value.text) : null;
-  return null;
 }
 
 /** Field ids stated on the line, except the item at the cursor (the one being typed). */
