@@ -4,7 +4,7 @@
  * pressure, so the measured peak reads about their sum. A peak near `pinsp` itself and well below
  * the sum says the note wrote the absolute inspiratory level as `pinsp` (PN317).
  */
-import type { InputValue } from '../analysis/model';
+import { forBand } from '../physiology/numeric';
 import { toRange } from '../syntax/tree';
 import { formatShort } from '../util/format';
 import { defineCheck } from './check';
@@ -15,13 +15,6 @@ const MIN_PEEP_CMH2O = 5;
 const NEAR_PINSP_CMH2O = 2;
 /** How far below PEEP + `pinsp` the peak must be to doubt the sum (our tolerance). */
 const BELOW_SUM_CMH2O = 4;
-
-/** A difference as written on paper: 22 − 20 is 2, never 2.0000000000000018. */
-const onPaper = (x: number): number => Math.round(x * 1e9) / 1e9;
-
-function usable(input: InputValue | undefined): number | null {
-  return input?.stated.usable && input.stated.value !== null ? input.stated.value : null;
-}
 
 export const peakNearAbsolutePinsp = defineCheck({
   code: 'PN317',
@@ -37,20 +30,17 @@ export const peakNearAbsolutePinsp = defineCheck({
   source: 'common practice, no source: in pressure control the airway is held at PEEP plus the set inspiratory pressure during inspiration, so the peak airway pressure is about their sum',
   runTimepoint(ctx) {
     const values = ctx.timepoint.values;
-    // Asked without building the values: nearly every timepoint has no `pinsp` or no peak.
-    const pinspNumber = values.numberOf('insp_pressure');
-    if (pinspNumber === null) return;
-    const peakNumber = values.numberOf('peak');
-    const peepNumber = values.numberOf('peep');
-    if (peakNumber === null || peepNumber === null || peepNumber < MIN_PEEP_CMH2O) return;
+    // The usable numbers in force, asked without building the values: nearly every timepoint has no `pinsp` or no peak.
+    const pinsp = values.numberOf('insp_pressure');
+    if (pinsp === null) return;
+    const peak = values.numberOf('peak');
+    const peep = values.numberOf('peep');
+    if (peak === null || peep === null || peep < MIN_PEEP_CMH2O || pinsp <= peep) return;
+    const sum = pinsp + peep;
+    // Differences as on paper (22 − 20 is 2, never 2.0000000000000018).
+    if (forBand(Math.abs(peak - pinsp)) > NEAR_PINSP_CMH2O || forBand(sum - peak) <= BELOW_SUM_CMH2O) return;
     const pinspInput = values.get('insp_pressure');
     const peakInput = values.get('peak');
-    const pinsp = usable(pinspInput);
-    const peak = usable(peakInput);
-    const peep = usable(values.get('peep'));
-    if (pinsp === null || peak === null || peep === null || peep < MIN_PEEP_CMH2O || pinsp <= peep) return;
-    const sum = pinsp + peep;
-    if (onPaper(Math.abs(peak - pinsp)) > NEAR_PINSP_CMH2O || onPaper(sum - peak) <= BELOW_SUM_CMH2O) return;
     const stated = pinspInput!.stated;
     const here = pinspInput!.origin.kind === 'here';
     const above = formatShort(pinsp - peep);
