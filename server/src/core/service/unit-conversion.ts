@@ -4,8 +4,9 @@
  * pressure of a note in mmHg or kPa and sets the note's `units gas` line to match.
  *
  * Rounding: kPa 1 decimal, mmHg 0, FiO2 fraction 2, FiO2 % 0 (1 when needed), °C/°F 1,
- * g/L 0, g/dL 1, Hb mmol/L 1, and one or two more where these would not convert back to the number as
- * written (`numberIn`). A converted number always gets its unit written, except a fraction.
+ * g/L 0, g/dL 1, Hb mmol/L 1, and one or two more where these would not convert back to the
+ * number as written (`numberIn`). A converted number always gets its unit written, except a
+ * fraction.
  */
 import { checkNote, type NoteResult } from '../check-note';
 import type { StatedValue } from '../analysis/model';
