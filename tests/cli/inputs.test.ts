@@ -111,6 +111,42 @@ describe('folder scans', () => {
     expect(await run(['check', '.'], out)).toBe(1);
     expect(reported(out.out())).toEqual(['UPPER.PNEU', 'mixed.Pneu', 'plain.pneu']);
   });
+
+  it('and so do patterns: a pattern\'s .pneu extension matches in any case, the rest as written', async () => {
+    const dir = tempDir();
+    mkdirSync(join(dir, 'ward', 'bay'), { recursive: true });
+    writeFileSync(join(dir, 'ward', 'UPPER.PNEU'), alarming);
+    writeFileSync(join(dir, 'ward', 'mixed.Pneu'), alarming);
+    writeFileSync(join(dir, 'ward', 'plain.pneu'), alarming);
+    writeFileSync(join(dir, 'ward', 'bay', 'deep.PNEU'), alarming);
+    writeFileSync(join(dir, 'ward', 'other.pneux'), alarming);
+    writeFileSync(join(dir, 'ward', 'readme.txt'), alarming);
+    const folder = io(dir);
+    expect(await run(['check', 'ward'], folder)).toBe(1);
+    const all = ['ward/UPPER.PNEU', 'ward/bay/deep.PNEU', 'ward/mixed.Pneu', 'ward/plain.pneu'];
+    expect(reported(folder.out())).toEqual(all);
+    for (const [pattern, expected] of [
+      ['ward/*.pneu', ['ward/UPPER.PNEU', 'ward/mixed.Pneu', 'ward/plain.pneu']],
+      ['ward/*.PNEU', ['ward/UPPER.PNEU', 'ward/mixed.Pneu', 'ward/plain.pneu']],
+      ['ward/**/*.pneu', all], // what a folder scan finds, as a pattern
+      ['**/*.Pneu', all],
+      ['ward/{plain,UPPER}.pneu', ['ward/UPPER.PNEU', 'ward/plain.pneu']],
+      // Only the extension: the name is matched as written (on a case-sensitive file system).
+      ['ward/upper.pneu*', null],
+      ['ward/m*.pneu', ['ward/mixed.Pneu']],
+      ['ward/M*.pneu', null],
+    ] as const) {
+      const out = io(dir);
+      const code = await run(['check', pattern], out);
+      if (expected === null) {
+        expect(code, pattern).toBe(2);
+        expect(out.err(), pattern).toMatch(/no file matches this pattern/);
+      } else {
+        expect(code, pattern).toBe(1);
+        expect(reported(out.out()), pattern).toEqual(expected);
+      }
+    }
+  });
 });
 
 describe('exclusions for notes outside the working folder', () => {

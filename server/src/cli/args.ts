@@ -30,10 +30,11 @@ Usage:
   pneumark docs [--write FILE]         the documentation of every check
 
 PATH is a file, a folder (every .pneu below it, in any case; hidden folders and files and
-node_modules are skipped), a glob pattern in quotes ("notes/**/*.pneu") or - for standard input.
-A path that exists is read as a path even when it holds [ ] or ( ). --exclude PATTERN and
-.pneuignore files leave notes out (gitignore syntax); a .pneuignore applies below its own folder,
-as a .gitignore does: the working folder's, and those in the folders on the way to each note.
+node_modules are skipped), a glob pattern in quotes ("notes/**/*.pneu"; its .pneu in any case
+too) or - for standard input. A path that exists is read as a path even when it holds [ ] or
+( ). --exclude PATTERN and .pneuignore files leave notes out (gitignore syntax); a .pneuignore
+applies below its own folder, as a .gitignore does: the working folder's, and those in the
+folders on the way to each note.
 Run \`pneumark COMMAND --help\` for a command's options.
 
 Exit codes: 0 clean; 1 findings at error level, more warnings than --max-warnings, or notes that

@@ -90,7 +90,7 @@ export function listInputs(args: readonly string[], cwd: string, exclude: readon
       const from: ArgumentYield = { arg, kind: 'pattern', root: resolve(cwd, staticPrefix(arg)), found: 0, excludedBy: new Set() };
       yields.push(from);
       walk.root = from.root;
-      const matches = globSync(arg, { cwd, onlyFiles: true, dot: false, ignore: ['**/node_modules/**'], expandDirectories: false, fs: walk.fs });
+      const matches = globSync(anyCaseExtension(arg), { cwd, onlyFiles: true, dot: false, ignore: ['**/node_modules/**'], expandDirectories: false, fs: walk.fs });
       if (matches.length === 0) problems.push({ path: arg, text: null, problem: 'no file matches this pattern' });
       for (const m of matches) add(toPosix(m), from);
       continue;
@@ -158,6 +158,15 @@ function nothingFound(from: ArgumentYield): string {
 /** Whether a path made by `relative` leads out of its folder. */
 function outside(rel: string): boolean {
   return rel === '..' || rel.startsWith(`..${sep}`) || isAbsolute(rel);
+}
+
+/**
+ * A pattern whose extension is `.pneu` (in any case) with that extension matched in any case, as a
+ * folder scan matches it: `notes/*.pneu` finds `X.PNEU`, which `check notes` finds too. The rest of
+ * the pattern is matched as written (`Ward*` is not `ward`, on a case-sensitive file system).
+ */
+function anyCaseExtension(pattern: string): string {
+  return /\.pneu$/i.test(pattern) ? `${pattern.slice(0, -NOTE_EXTENSION.length)}.[pP][nN][eE][uU]` : pattern;
 }
 
 /** The part of a glob pattern before its first segment with pattern characters (`.` if none). */
