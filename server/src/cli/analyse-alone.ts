@@ -83,10 +83,11 @@ export interface AloneOptions {
 /**
  * The report of one note analysed in a worker of its own with `heapMb` of heap; `bytes` are the
  * note's when this thread has read them already (always for standard input), else the worker
- * reads the note at `path`. Never rejects: a worker that runs out of memory, fails or stops
+ * reads the note at `path`; `index` is the note's place in the run, from 0 (a redacted export names
+ * the note by it). Never rejects: a worker that runs out of memory, fails or stops
  * without an answer gives the note a problem.
  */
-export function analyseAlone(path: string, bytes: Uint8Array | null, task: Task, options: AloneOptions): Promise<FileReport> {
+export function analyseAlone(path: string, index: number, bytes: Uint8Array | null, task: Task, options: AloneOptions): Promise<FileReport> {
   const shown = path === '-' ? STDIN_NAME : path;
   const failed = (problem: string): FileReport => ({ path: shown, problem, findings: [] });
   return new Promise<FileReport>((resolve) => {
@@ -116,7 +117,7 @@ export function analyseAlone(path: string, bytes: Uint8Array | null, task: Task,
     });
     worker.on('exit', () => settle(failed('could not be analysed: its worker thread stopped without an answer')));
     const note = bytes === null ? null : ownBytes(bytes);
-    const item: WorkItem = note === null ? { f: path, i: 0 } : { f: path, i: 0, bytes: note };
+    const item: WorkItem = note === null ? { f: path, i: index } : { f: path, i: index, bytes: note };
     worker.postMessage([item], note === null ? [] : [note.buffer as ArrayBuffer]);
   });
 }

@@ -221,7 +221,7 @@ function workerMain(): void {
         const bytes = m.bytes;
         const read = bytes === undefined ? worker.read(m.f, noStdin) : { path: m.f === '-' ? STDIN_NAME : m.f, bytes: Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength), problem: null };
         if (data.aloneFrom !== null && read.bytes !== null && read.bytes.length > data.aloneFrom) return { i: m.i, report: null };
-        return { i: m.i, report: packReport(withEntry(worker.analyse(m.f, read, data.task))) };
+        return { i: m.i, report: packReport(withEntry(worker.analyse(m.f, read, data.task, m.i + 1))) };
       } catch (error) {
         return { i: m.i, report: packReport({ path: m.f === '-' ? STDIN_NAME : m.f, problem: `could not be analysed (${error instanceof Error ? error.message : String(error)})`, findings: [] }) };
       }

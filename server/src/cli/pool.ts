@@ -26,7 +26,7 @@ export const PARALLEL_FROM = 2000;
 /** Batches each worker has been sent and not yet answered. */
 const IN_FLIGHT = 2;
 
-/** A note sent to a worker (its path and its place in the output), and what comes back. */
+/** A note sent to a worker (its path and its place in the output, from 0), and what comes back. */
 export interface WorkItem {
   readonly f: string;
   readonly i: number;
@@ -154,29 +154,29 @@ export async function runAll(files: readonly string[], task: Task, local: NoteWo
   const parallel = options.workers > 1 && canUseWorkers();
   const aloneOptions = { cwd: options.cwd, overrides: options.overrides, heapMb: alone?.heapMb ?? 0 };
   /** A note read and analysed in this thread, or, when it is big, read here and analysed alone. */
-  const here = async (f: string): Promise<FileReport> => {
+  const here = async (f: string, i: number): Promise<FileReport> => {
     const read = local.read(f, stdin);
-    if (alone !== null && read.bytes !== null && read.bytes.length > alone.fromBytes) return analyseAlone(f, read.bytes, task, aloneOptions);
-    return local.analyse(f, read, task);
+    if (alone !== null && read.bytes !== null && read.bytes.length > alone.fromBytes) return analyseAlone(f, i, read.bytes, task, aloneOptions);
+    return local.analyse(f, read, task, i + 1);
   };
 
   if (!parallel) {
     for (let i = 0; i < files.length; i++) {
       await mayRead();
-      finish(i, await here(files[i]!));
+      finish(i, await here(files[i]!, i));
       if (i % 64 === 63) await new Promise((r) => setImmediate(r)); // let a progress bar draw
     }
     return reports;
   }
   const queue: WorkItem[] = [];
   for (let i = 0; i < files.length; i++) {
-    if (files[i] === '-') finish(i, await here('-'));
+    if (files[i] === '-') finish(i, await here('-', i));
     else queue.push({ f: files[i]!, i });
   }
   /** Big notes a pool worker handed back, analysed alone one at a time (each may take a third of the heap). */
   let aloneDone: Promise<void> = Promise.resolve();
   const sendAlone = (item: WorkItem): void => {
-    aloneDone = aloneDone.then(async () => finish(item.i, await analyseAlone(item.f, null, task, aloneOptions)));
+    aloneDone = aloneDone.then(async () => finish(item.i, await analyseAlone(item.f, item.i, null, task, aloneOptions)));
   };
   const workers = Math.min(options.workers, queue.length);
   const most = batchSize(queue.length, workers);

@@ -7,6 +7,7 @@ import { dirname, isAbsolute, join } from 'node:path';
 import { checkNote, type NoteResult } from '../core/check-note';
 import type { Settings } from '../core/settings';
 import type { Finding, Severity } from '../core/types';
+import { notePseudonym } from '../core/export/pseudonym';
 import { NONE } from '../core/util/lists';
 import { ProjectConfigs } from '../node/project-config';
 import { isBlankNote, noteFromBytes, NO_NOTE, readNoteBytes, type NoteBytes, type NoteInput } from './inputs';
@@ -68,8 +69,8 @@ export class NoteWorker {
     return settings;
   }
 
-  run(path: string, task: Task, stdin: () => Buffer): FileReport {
-    return this.analyse(path, this.read(path, stdin), task);
+  run(path: string, task: Task, stdin: () => Buffer, place = 1): FileReport {
+    return this.analyse(path, this.read(path, stdin), task, place);
   }
 
   /** The note's bytes (or why they cannot be read), so a big note can be sent elsewhere before it is analysed. */
@@ -77,8 +78,12 @@ export class NoteWorker {
     return readNoteBytes(path, this.cwd, stdin);
   }
 
-  /** What `task` needs of the note at `path`, from its bytes as `read` gave them. */
-  analyse(path: string, read: NoteBytes, task: Task): FileReport {
+  /**
+   * What `task` needs of the note at `path`, from its bytes as `read` gave them. `place`: the note's
+   * place among the notes of the run, from 1 (in their sorted order, standard input last), which
+   * names it in a redacted export in place of its path.
+   */
+  analyse(path: string, read: NoteBytes, task: Task, place = 1): FileReport {
     const note: NoteInput = noteFromBytes(read);
     if (note.text === null) return { path: note.path, problem: note.problem, findings: [] };
     if (isBlankNote(note.text)) return { path: note.path, problem: NO_NOTE, findings: [] };
@@ -93,7 +98,10 @@ export class NoteWorker {
     // An export's output is the payload; its findings only decide the exit code (an error or not),
     // so one error stands for them all rather than every finding crossing back from a worker.
     const error = result.findings.find((f) => f.severity === 'error');
-    return { path: note.path, problem: null, findings: error ? [error] : [], payload: this.exportRenderer?.(note.path, result, task) ?? null };
+    // Redacted, a note is named by its place in the run (`note-00001`): a file name can carry
+    // identifiers, and so can anything made from it (a FHIR id is a hash of what names the note).
+    const name = task.redactProse ? notePseudonym(place) : note.path;
+    return { path: note.path, problem: null, findings: error ? [error] : [], payload: this.exportRenderer?.(name, result, task) ?? null };
   }
 }
 

@@ -9,6 +9,7 @@
  * - fhir.ts     a FHIR R4 collection Bundle of LOINC-coded Observations per note
  * - sarif.ts    a SARIF 2.1.0 log of the findings of many notes
  * - precision.ts the one rule for the numbers they all write (12 significant digits)
+ * - pseudonym.ts what names a note in a redacted export, in place of its path (`note-00001`)
  *
  * May import: the rest of the core. Must not import: node:fs, vscode, the server or the CLI.
  * To add a format: a new file here taking `(path, result, options)`, exported below, with golden
@@ -33,5 +34,6 @@ export {
 } from './fhir';
 export { artifactLocationOf, artifactUri, SARIF_SCHEMA, SARIF_URI_BASE_ID, sarifLogParts, toSarifLog, type PathStyle, type SarifConfigurationProblem, type SarifFile, type SarifOptions } from './sarif';
 export { exportedNumber, EXPORTED_MAX_DECIMALS, EXPORTED_SIGNIFICANT_DIGITS } from './precision';
+export { notePseudonym } from './pseudonym';
 export { stableUuid } from './stable-id';
 export { ucumCode, unitSlug } from './units';
