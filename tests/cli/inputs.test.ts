@@ -112,6 +112,21 @@ describe('folder scans', () => {
     expect(reported(out.out())).toEqual(['UPPER.PNEU', 'mixed.Pneu', 'plain.pneu']);
   });
 
+  it('are read in the byte order of their UTF-8 names (as `LC_ALL=C sort` lists them), emoji included', async () => {
+    const dir = tempDir();
+    // UTF-16 code units would put the emoji (a surrogate pair, 0xD83D…) before U+FF21 (0xFF21);
+    // in UTF-8, and by code point, U+FF21 (EF BC A1) comes first and U+1F600 (F0 9F 98 80) last.
+    for (const name of ['\u{1F600}.pneu', '\u{FF21}.pneu', 'b.pneu', '\u00E9.pneu', 'Z.pneu']) writeFileSync(join(dir, name), alarming);
+    const byBytes = ['Z.pneu', 'b.pneu', '\u00E9.pneu', '\u{FF21}.pneu', '\u{1F600}.pneu'];
+    expect([...byBytes].sort((a, b) => Buffer.compare(Buffer.from(a), Buffer.from(b)))).toEqual(byBytes);
+    const out = io(dir);
+    expect(await run(['check', '.'], out)).toBe(1);
+    expect(reported(out.out())).toEqual(byBytes);
+    const named = io(dir);
+    expect(await run(['check', ...[...byBytes].reverse()], named)).toBe(1);
+    expect(reported(named.out())).toEqual(byBytes);
+  });
+
   it('and so do patterns: a pattern\'s .pneu extension matches in any case, the rest as written', async () => {
     const dir = tempDir();
     mkdirSync(join(dir, 'ward', 'bay'), { recursive: true });

@@ -319,9 +319,25 @@ function linkTarget(abs: string): string {
   }
 }
 
-/** Byte-wise order of paths (the same on every machine and locale). */
+/**
+ * The order of paths by the bytes of their UTF-8 names, which is that of their code points (the
+ * same on every machine and locale, and the order `LC_ALL=C sort` gives). JavaScript's `<` compares
+ * UTF-16 code units, where a character above U+FFFF (an emoji: a surrogate pair, 0xD800–0xDFFF)
+ * comes before U+E000–U+FFFF; in UTF-8 it comes after them.
+ */
 function comparePaths(a: string, b: string): number {
-  return a < b ? -1 : a > b ? 1 : 0;
+  const n = Math.min(a.length, b.length);
+  for (let i = 0; i < n; i++) {
+    const x = a.charCodeAt(i);
+    const y = b.charCodeAt(i);
+    if (x !== y) return codeUnitRank(x) - codeUnitRank(y);
+  }
+  return a.length - b.length;
+}
+
+/** A UTF-16 code unit's place in code point order: surrogates after U+E000–U+FFFF. */
+function codeUnitRank(unit: number): number {
+  return unit >= 0xd800 && unit <= 0xdfff ? unit + 0x2000 : unit >= 0xe000 ? unit - 0x800 : unit;
 }
 
 /**
