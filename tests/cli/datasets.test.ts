@@ -70,6 +70,14 @@ describe('finding notes', () => {
     expect(out.err()).toMatch(/nowhere\/\*\*\/\*\.pneu: no file matches this pattern/);
     expect(out.out()).toMatch(/1 note checked/);
   });
+
+  it('says it once when the folder a pattern starts from does not exist (not also that the folder cannot be read)', async () => {
+    const dir = corpus();
+    const out = io(dir);
+    expect(await run(['check', 'nowhere/*.pneu', 'ward/missing/**/*.pneu', 'ward/a/one.pneu'], out)).toBe(2);
+    expect(out.err()).toBe('pneumark: nowhere/*.pneu: no file matches this pattern\npneumark: ward/missing/**/*.pneu: no file matches this pattern\n');
+    expect(out.out()).toMatch(/1 note checked, 2 could not be checked/);
+  });
 });
 
 describe('limits and levels', () => {

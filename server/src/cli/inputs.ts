@@ -254,7 +254,10 @@ class WalkWatch {
         return (inputHooks.readdirSync ?? readdirSync)(path, options);
       } catch (error) {
         const folder = resolve(path);
-        if (!this.unreadable.has(folder)) this.unreadable.set(folder, { code: errorCode(error) ?? 'unknown error', root: this.root });
+        const code = errorCode(error) ?? 'unknown error';
+        // A folder that does not exist holds no note to miss: the one a pattern starts from
+        // (`nowhere/*.pneu`, which then matches nothing and says so), or one removed meanwhile.
+        if (code !== 'ENOENT' && !this.unreadable.has(folder)) this.unreadable.set(folder, { code, root: this.root });
         throw error;
       }
     }) as unknown as FileSystemAdapter['readdirSync'],
