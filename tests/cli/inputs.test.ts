@@ -164,6 +164,31 @@ describe('folder scans', () => {
   });
 });
 
+describe('exclusions and case', () => {
+  it('match names with their case as written, as git does on a case-sensitive file system, and .pneu in any case', async () => {
+    const dir = tempDir();
+    mkdirSync(join(dir, 'Old'));
+    mkdirSync(join(dir, 'old'));
+    for (const name of ['Draft.pneu', 'draft.pneu', 'Old/x.pneu', 'old/y.pneu', 'keep.PNEU']) writeFileSync(join(dir, name), alarming);
+    const kept = ['draft.pneu', 'keep.PNEU', 'old/y.pneu'];
+    const byOption = io(dir);
+    expect(await run(['check', '.', '--exclude', 'Draft.pneu', '--exclude', 'Old/'], byOption)).toBe(1);
+    expect(reported(byOption.out())).toEqual(kept);
+    writeFileSync(join(dir, '.pneuignore'), 'Draft.pneu\nOld/\n');
+    const byFile = io(dir);
+    expect(await run(['check', '.'], byFile)).toBe(1);
+    expect(reported(byFile.out())).toEqual(kept);
+    // The extension, as in folder scans and patterns, in any case.
+    const extension = io(dir);
+    expect(await run(['check', '.', '--exclude', '*.pneu', '--exclude', '!keep.pneu'], extension)).toBe(1);
+    expect(reported(extension.out())).toEqual(['keep.PNEU']);
+    writeFileSync(join(dir, '.pneuignore'), '*.PNEU\n');
+    const all = io(dir);
+    expect(await run(['check', '.'], all)).toBe(2);
+    expect(all.err()).toMatch(/the 5 \.pneu notes in this folder are excluded by \.pneuignore/);
+  });
+});
+
 describe('exclusions for notes outside the working folder', () => {
   it('match --exclude relative to the folder named on the command line', async () => {
     const top = tempDir();

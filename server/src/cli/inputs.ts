@@ -344,6 +344,16 @@ function codeUnitRank(unit: number): number {
 }
 
 /**
+ * Exclusion patterns (gitignore syntax) as `--exclude` and `.pneuignore` files give them: names
+ * matched with their case as written, as git does on a case-sensitive file system (`Old/` does not
+ * leave out `old/`: a dataset must not lose notes that nobody named), but a pattern's `.pneu`
+ * extension in any case, as folder scans and patterns find notes (`*.pneu` leaves out `X.PNEU`).
+ */
+function exclusionPatterns(lines: readonly string[]): Ignore {
+  return ignore({ ignorecase: false }).add(lines.map((line) => line.replace(/\.pneu(\s*)$/i, '.[pP][nN][eE][uU]$1')));
+}
+
+/**
  * Which exclusion (if any) leaves a note out. `--exclude` patterns (gitignore syntax) are matched
  * against the note's path relative to the working folder; a note outside the working folder is
  * matched by its path relative to `root`, the folder named on the command line that brought it in
@@ -353,7 +363,7 @@ function codeUnitRank(unit: number): number {
 function exclusions(cwd: string, exclude: readonly string[], ignoreFiles: IgnoreFiles): (path: string, root: string) => ExclusionSource | null {
   const { paths, patterns } = splitExclusions(cwd, exclude);
   // No pattern excludes nothing: no need to ask of each note.
-  const fromArgs: Ignore | null = patterns.length === 0 ? null : ignore().add(patterns);
+  const fromArgs: Ignore | null = patterns.length === 0 ? null : exclusionPatterns(patterns);
   return (path: string, root: string) => {
     const abs = resolve(cwd, path);
     for (const p of paths) if (abs === p || abs.startsWith(p.endsWith(sep) ? p : p + sep)) return '--exclude';
@@ -528,7 +538,7 @@ class IgnoreFiles {
           if (stat.isFile()) {
             const lines = readAll(fd, stat.size).toString('utf8').split(/\r?\n/);
             lines.forEach((line, i) => { if (globstarsIn(line) > MAX_GLOBSTARS) this.skipped.push({ file: join(folder, IGNORE_FILE), line: i + 1 }); });
-            patterns = ignore().add(lines.filter((line) => globstarsIn(line) <= MAX_GLOBSTARS));
+            patterns = exclusionPatterns(lines.filter((line) => globstarsIn(line) <= MAX_GLOBSTARS));
           }
         } finally {
           closeSync(fd);
