@@ -161,12 +161,16 @@ function outside(rel: string): boolean {
 }
 
 /**
- * A pattern whose extension is `.pneu` (in any case) with that extension matched in any case, as a
- * folder scan matches it: `notes/*.pneu` finds `X.PNEU`, which `check notes` finds too. The rest of
- * the pattern is matched as written (`Ward*` is not `ward`, on a case-sensitive file system).
+ * A glob or exclusion pattern whose extension is `.pneu` (in any case), with that extension matched
+ * in any case, as a folder scan matches it: `notes/*.pneu` finds `X.PNEU`, which `check notes`
+ * finds too. The rest of the pattern is matched as written (`Ward*` is not `ward`, on a
+ * case-sensitive file system).
  */
 function anyCaseExtension(pattern: string): string {
-  return /\.pneu$/i.test(pattern) ? `${pattern.slice(0, -NOTE_EXTENSION.length)}.[pP][nN][eE][uU]` : pattern;
+  // White space after the extension is kept as it is (gitignore syntax drops it).
+  const body = pattern.trimEnd();
+  if (body.slice(-NOTE_EXTENSION.length).toLowerCase() !== NOTE_EXTENSION) return pattern;
+  return `${body.slice(0, -NOTE_EXTENSION.length)}.[pP][nN][eE][uU]${pattern.slice(body.length)}`;
 }
 
 /** The part of a glob pattern before its first segment with pattern characters (`.` if none). */
@@ -350,7 +354,7 @@ function codeUnitRank(unit: number): number {
  * extension in any case, as folder scans and patterns find notes (`*.pneu` leaves out `X.PNEU`).
  */
 function exclusionPatterns(lines: readonly string[]): Ignore {
-  return ignore({ ignorecase: false }).add(lines.map((line) => line.replace(/\.pneu(\s*)$/i, '.[pP][nN][eE][uU]$1')));
+  return ignore({ ignorecase: false }).add(lines.map(anyCaseExtension));
 }
 
 /**
