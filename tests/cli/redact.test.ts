@@ -21,11 +21,11 @@ const NOTES = [
   'patient age 61 sex f height 160\n@ 10:00\nvitals spo2 104\n',
 ];
 
-/** A folder of the notes under identifying names; `names` in the order they sort in. */
-function dataset(names: readonly string[]): string {
+/** A folder of the notes (NOTES, or `notes`) under identifying names; `names` in the order they sort in. */
+function dataset(names: readonly string[], notes: readonly string[] = NOTES): string {
   const dir = mkdtempSync(join(tmpdir(), 'pneumark-redact-'));
   mkdirSync(join(dir, FOLDER));
-  names.forEach((name, i) => writeFileSync(join(dir, FOLDER, name), NOTES[i]!));
+  names.forEach((name, i) => writeFileSync(join(dir, FOLDER, name), notes[i]!));
   return dir;
 }
 
@@ -69,6 +69,20 @@ describe('export --redact names notes by their place in the run', () => {
     const open = memoryIo({ cwd: dir });
     await run(['export', '--format', 'fhir', '.'], open);
     expect((JSON.parse(open.out()) as { id: string }[]).map((b) => b.id)).not.toEqual(bundles.map((b) => b.id));
+  });
+
+  it('FHIR: the notes in the same place of two redacted exports get different ids when they differ, the same when they do not', async () => {
+    // Two wards exported apart and loaded into one store: ids made from the place alone would
+    // collide, and one ward's resources would replace the other's.
+    const wardA = dataset(NAMES.slice(0, 1));
+    const wardB = dataset(NAMES.slice(1, 2), NOTES.slice(1, 2));
+    const idsOf = (text: string) => (JSON.parse(text) as { id: string; entry?: { fullUrl: string }[] }[]).flatMap((b) => [b.id, ...(b.entry ?? []).map((e) => e.fullUrl)]);
+    const a = idsOf((await exported(wardA, 'fhir', ['.'])).out);
+    const b = idsOf((await exported(wardB, 'fhir', ['.'])).out);
+    expect(a.length).toBeGreaterThan(1);
+    expect(a.filter((id) => b.includes(id))).toEqual([]);
+    // The same note in the same place: the same ids on every run, whatever the file is called.
+    expect(idsOf((await exported(dataset(['x.pneu']), 'fhir', ['.'])).out)).toEqual(a);
   });
 
   it('every format: the same export from other names, and a place for each note named (standard input last)', async () => {

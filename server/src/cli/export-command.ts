@@ -7,7 +7,8 @@ import { z } from 'zod';
 import type { NoteResult } from '../core/check-note';
 import { csvCells, csvHeader } from '../core/export/csv';
 import { exportColumns, timepointCells } from '../core/export/columns';
-import { anchorProblem, stdinNoteKey, toFhirBundle } from '../core/export/fhir';
+import { anchorProblem, stdinNoteKey, toFhirBundle, type FhirOptions } from '../core/export/fhir';
+import { stableHex128 } from '../core/export/stable-id';
 import { toJsonl } from '../core/export/jsonl';
 import { wordList } from '../core/util/format';
 import { excludeOption, EXIT, HELP, jobsOption, parse, UsageError, validate, wholeNumberOption, type Io } from './args';
@@ -60,9 +61,24 @@ export const exportRenderer: ExportRenderer = (path: string, result: NoteResult,
     return timepointCells(path, result, options).map((cells) => csvCells(cells, csv)).join('');
   }
   if (task.format === 'jsonl') return toJsonl(path, result, options);
+  const fhir = { ...options, ...(task.anchor ? { anchor: task.anchor } : {}) };
+  if (task.redactProse) return redactedBundleText(path, result, fhir);
   const noteKey = path === STDIN_NAME ? { noteKey: stdinNoteKey(result) } : {};
-  return bundleText(toFhirBundle(path, result, { ...options, ...noteKey, ...(task.anchor ? { anchor: task.anchor } : {}) }));
+  return bundleText(toFhirBundle(path, result, { ...fhir, ...noteKey }));
 };
+
+/**
+ * A redacted note's bundle (`pseudonym`: its name in the run, `note-00001`), with ids made from the
+ * pseudonym and from the bundle itself as written with ids made from the pseudonym alone: nothing
+ * that is not in the output, so no part of the file name, and yet different ids for different notes
+ * in the same place of two exports (two wards exported apart and loaded into one store), and the
+ * same ids for the same note in the same place on every run. Null as `bundleText` says.
+ */
+function redactedBundleText(pseudonym: string, result: NoteResult, options: FhirOptions): string | null {
+  const first = bundleText(toFhirBundle(pseudonym, result, { ...options, noteKey: pseudonym }));
+  if (first === null) return null;
+  return bundleText(toFhirBundle(pseudonym, result, { ...options, noteKey: `${pseudonym}\u0000${stableHex128(first)}` }));
+}
 
 /** Why a note's FHIR bundle is left out of the export. */
 export const TOO_BIG_BUNDLE = 'its FHIR bundle is more JSON than one string can hold; export it with --format jsonl or csv';
