@@ -69,7 +69,7 @@ export class NoteWorker {
     return settings;
   }
 
-  run(path: string, task: Task, stdin: () => Buffer, place = 1): FileReport {
+  run(path: string, task: Task, stdin: () => Buffer, place: number): FileReport {
     return this.analyse(path, this.read(path, stdin), task, place);
   }
 
@@ -83,7 +83,7 @@ export class NoteWorker {
    * place among the notes of the run, from 1 (in their sorted order, standard input last), which
    * names it in a redacted export in place of its path.
    */
-  analyse(path: string, read: NoteBytes, task: Task, place = 1): FileReport {
+  analyse(path: string, read: NoteBytes, task: Task, place: number): FileReport {
     const note: NoteInput = noteFromBytes(read);
     if (note.text === null) return { path: note.path, problem: note.problem, findings: [] };
     if (isBlankNote(note.text)) return { path: note.path, problem: NO_NOTE, findings: [] };
