@@ -347,7 +347,8 @@ function unknownKeyIssue(item: ItemNode, section: SectionId, line: number, lineI
   const renamed = endExpiratoryName(key.text, section, lineItems);
   // Beside a device that gives no set airway pressure, no key of one is offered (it would be PN318).
   const candidates = section === 'oxygen' && givesNoSetPressure(deviceOfLine(lineItems)) ? keysInSection(section).filter(isNoPressureKey) : keysInSection(section);
-  const keys = renamed !== null ? { near: [renamed], setAside: false } : settingsBeforeReadings(key.text, section, closest(key.text, candidates, Infinity));
+  const usual = renamed === null ? usualKeysOf(key.text, section) : null;
+  const keys = renamed !== null ? { near: [renamed], setAside: false } : usual ?? settingsBeforeReadings(key.text, section, closest(key.text, candidates, Infinity));
   const near = renamed !== null ? keys.near : [...devices, ...keys.near].slice(0, 3);
   const elsewhere = FIELDS.filter((f) => f.aliases.includes(key.text.toLowerCase())).flatMap((f) => f.sections);
   const where = elsewhere.length > 0 ? ` (\`${key.text}\` belongs on a ${[...new Set(elsewhere)].join(' or ')} line)` : '';
@@ -360,6 +361,27 @@ function unknownKeyIssue(item: ItemNode, section: SectionId, line: number, lineI
     // With a reading set aside the word was as near a key of another kind: never a fix applied unasked.
     fixes: near.map((k) => ({ title: `Change to \`${k}\``, edits: [{ span: key.span, newText: k }], preferred: near.length === 1 && !keys.setAside && safeKeyFix(key.text.toLowerCase(), k.toLowerCase()) })),
   };
+}
+
+/**
+ * Words commonly written for a key of a line that are not its aliases, because they also mean
+ * something else: the keys they are offered, in the order a user would expect, in place of their
+ * spelling neighbours, and never applied unasked (`setAside`). `ip` is commonly the set inspiratory
+ * pressure (common practice, no source), and one letter from the measured peak `pip`; `pmax` is the
+ * peak airway pressure in LOINC's naming (76531-3, "Pressure.max", the peak's code in the field
+ * registry) but on some ventilators the set pressure limit (from memory): its spelling neighbours
+ * `map` and `pmean` are the mean pressure, the opposite of a maximum, and are not offered.
+ */
+const USUAL_KEYS: Readonly<Partial<Record<SectionId, Readonly<Record<string, { readonly near: readonly string[]; readonly setAside: true }>>>>> = {
+  vent: {
+    ip: { near: ['pinsp', 'pip'], setAside: true },
+    pmax: { near: ['peak'], setAside: true },
+  },
+};
+
+function usualKeysOf(written: string, section: SectionId): { readonly near: readonly string[]; readonly setAside: boolean } | null {
+  const words = USUAL_KEYS[section];
+  return words !== undefined && Object.hasOwn(words, written.toLowerCase()) ? words[written.toLowerCase()]! : null;
 }
 
 /**
