@@ -42,6 +42,8 @@ describe('documentSymbols', () => {
     expect(documentSymbols(checkNote(note('@ 08:00', '@ 25:10  bad', '@'))).map((s) => [s.name, s.detail])).toEqual([['08:00', '08:00'], ['bad', '25:10 (not read)'], ['line 3', 'time unknown']]);
     // On the first day a clock time says it all.
     expect(documentSymbols(checkNote(note('@ 08:00', '@ 09:30'))).map((s) => s.detail)).toEqual(['08:00', '09:30']);
+    // A time that names its day says it once (`day 2 02:00`, not `day 2 02:00 (day 2)`).
+    expect(documentSymbols(checkNote(note('@ day 1 22:15', '@ day 2 02:00', '@ 08:00', '@ Day 3 09:30'))).map((s) => s.detail)).toEqual(['day 1 22:15', 'day 2 02:00', '08:00 (day 2)', 'Day 3 09:30']);
   });
 
   it('selects the `@` line, spans whole lines in UTF-16 and keeps children inside their parent', () => {

@@ -50,8 +50,9 @@ function timeDetail(result: NoteResult, tp: Timepoint): string {
   const computed = tp.time.minutes !== null ? clockText(tp.time.minutes) : tp.time.day !== null ? `day ${tp.time.day}` : null;
   if (written && computed && written.startsWith('+')) return `${written} (${computed})`;
   // A clock time alone falls on the day the timeline gives it: past the first day, say which
-  // (`07:00 (day 2)` after `@ day 1 23:30`), so the outline of a note of several days reads true.
-  if (written && node?.kind === 'timepoint' && node.time?.kind === 'clock' && tp.time.day !== null && tp.time.day > 1) return `${written} (day ${tp.time.day})`;
+  // (`07:00 (day 2)` after `@ day 1 23:30`), so the outline of a note of several days reads true;
+  // one written with its day (`day 2 02:00`) says it already.
+  if (written && node?.kind === 'timepoint' && node.time?.kind === 'clock' && node.time.day === null && tp.time.day !== null && tp.time.day > 1) return `${written} (day ${tp.time.day})`;
   // A time that could not be read is named as written, as its hover and its findings name it.
   const unread = node?.kind === 'timepoint' && !node.time ? writtenTime(node, contentEnd(node)) : '';
   if (unread) return `${unread} (not read)`;
