@@ -319,6 +319,19 @@ describe('while a value of several parts is typed', () => {
     }
     expect(labels('oxygen room air |')).toContain('fio2');
   });
+
+  it('completes a device of two words after its key too (`device room a|`, also after other items)', () => {
+    for (const marked of ['oxygen device room |', 'oxygen device room a|', 'oxygen fio2 0.21, device ROOM  A|']) {
+      const items = complete(marked);
+      expect(items.map((c) => c.label), marked).toEqual(['room air']);
+      const start = marked.toLowerCase().indexOf('room');
+      expect(items[0]?.replace, marked).toEqual({ start: { line: 0, character: start }, end: { line: 0, character: marked.length - 1 } });
+      const applied = applyEdits(marked.slice(0, -1), [{ range: items[0]!.replace!, newText: items[0]!.insertText }]);
+      expect(checkNote(applied).findings.map((f) => f.code), applied).toEqual([]);
+    }
+    // The key's own word is not a device: after it, the devices of one word are offered as before.
+    expect(labels('oxygen device |')).toContain('room air');
+  });
 });
 
 describe('where there is nothing to offer', () => {

@@ -114,8 +114,10 @@ function completionsOnLine(node: LineNode, position: Position, gasUnit: () => Ga
   // A pair or a spaced shorthand gas being typed (`bp 120 / |`, `abg 7.3 / 56 / |`): numbers come next.
   if (last.text.endsWith('/')) return [];
   if (section.id === 'oxygen' && !afterNumber) {
-    // A device of two words being typed (`oxygen room a|`): the lead so far, from the first word after the section.
-    const devices = leadDeviceCompletions(text, chunks[1]!.span.start, ch, lineRange(line, chunks[1]!.span.start, wordEnd));
+    // A device of two words being typed (`oxygen room a|`, `device room a|`): the lead so far, from
+    // the first word after the section, or after the key `device`.
+    const leadStart = deviceLeadStart(chunks);
+    const devices = leadDeviceCompletions(text, leadStart, ch, lineRange(line, leadStart, wordEnd));
     if (devices) return devices;
   }
 
@@ -216,6 +218,15 @@ function keepNextWord(node: LineNode, ch: number, items: CompletionInfo[]): Comp
     else if (role !== 'number' && role !== 'unit' && role !== 'timepoint') out.push({ ...c, insertText: `${c.insertText} `, replace: lineRange(r.start.line, ch, ch) });
   }
   return out;
+}
+
+/**
+ * Where a device being typed starts: after the last key `device` written before the cursor with a
+ * word after it (`oxygen fio2 0.21, device room a|`), else at the first word after the section.
+ */
+function deviceLeadStart(chunks: readonly { readonly text: string; readonly span: { readonly start: number } }[]): number {
+  for (let k = chunks.length - 2; k >= 1; k--) if (fieldFor('oxygen', chunks[k]!.text)?.id === 'device') return chunks[k + 1]!.span.start;
+  return chunks[1]!.span.start;
 }
 
 /**
