@@ -135,6 +135,18 @@ describe('writing out the unit a bare value was read in', () => {
     expect(after('abg 7.28/5|6/71/26', 'Write the unit the shorthand pressures were read in')).toBe('abg 7.28/56/71/26 mmHg');
   });
 
+  it('names the value as it is written where its key is implied by its place, not by a key the line does not show', () => {
+    const titled = (marked: string) => actions(marked).list.find((a) => a.title.startsWith('Write the unit it was read in'))?.title;
+    // The measured mean in brackets after a blood pressure.
+    expect(titled('vitals bp 120/80 (9|3)')).toBe('Write the unit it was read in: (93 mmHg)');
+    expect(after('vitals bp 120/80 (9|3)', 'Write the unit it was read in')).toBe('vitals bp 120/80 (93 mmHg)');
+    // A device's flow, written after the device.
+    expect(titled('oxygen cannula |2')).toBe('Write the unit it was read in: 2 L/min');
+    expect(after('oxygen cannula |2', 'Write the unit it was read in')).toBe('oxygen cannula 2 L/min');
+    // With its key, as before.
+    expect(titled('vitals map 9|3')).toBe('Write the unit it was read in: map 93 mmHg');
+  });
+
   it('not for a written unit, a fraction, a pH, or a doubtful value (its finding offers "Mark as kPa")', () => {
     expect(actions('abg po2 71 mm|Hg').list.some((a) => a.title.startsWith('Write the unit'))).toBe(false);
     expect(actions('vent fio2 0.|4').list.some((a) => a.title.startsWith('Write the unit'))).toBe(false);
