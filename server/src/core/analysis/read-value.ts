@@ -347,11 +347,14 @@ function unknownKeyIssue(item: ItemNode, section: SectionId, line: number, lineI
   const renamed = endExpiratoryName(key.text, section, lineItems);
   // Beside a device that gives no set airway pressure, no key of one is offered (it would be PN318).
   const candidates = section === 'oxygen' && givesNoSetPressure(deviceOfLine(lineItems)) ? keysInSection(section).filter(isNoPressureKey) : keysInSection(section);
-  const usual = renamed === null ? usualKeysOf(key.text, section) : null;
-  const keys = renamed !== null ? { near: [renamed], setAside: false } : usual ?? settingsBeforeReadings(key.text, section, closest(key.text, candidates, Infinity));
-  const near = renamed !== null ? keys.near : [...devices, ...keys.near].slice(0, 3);
   const elsewhere = FIELDS.filter((f) => f.aliases.includes(key.text.toLowerCase())).flatMap((f) => f.sections);
-  const where = elsewhere.length > 0 ? ` (\`${key.text}\` belongs on a ${[...new Set(elsewhere)].join(' or ')} line)` : '';
+  // A key of another line is on the wrong line, not misspelt: no key of another quantity is
+  // offered for it (`hb` on a vitals line is not the heart rate `hr`), but the line's own name.
+  const usual = renamed !== null ? null : elsewhere.length > 0 ? WRONG_LINE : usualKeysOf(key.text, section);
+  const keys = renamed !== null ? { near: [renamed], setAside: false } : usual ?? settingsBeforeReadings(key.text, section, closest(key.text, candidates, Infinity));
+  const near = renamed !== null || usual !== null ? keys.near : [...devices, ...keys.near].slice(0, 3);
+  const lines = [...new Set(elsewhere)];
+  const where = lines.length > 0 ? ` (\`${key.text}\` belongs on ${/^[aeiou]/.test(lines[0]!) ? 'an' : 'a'} ${lines.join(' or ')} line)` : '';
   const hint = near.length > 0 ? ` Did you mean ${near.map((k) => `\`${k}\``).join(' or ')}?` : '';
   return {
     check: 'unknown-key',
@@ -363,6 +366,16 @@ function unknownKeyIssue(item: ItemNode, section: SectionId, line: number, lineI
   };
 }
 
+interface UsualKeys {
+  readonly near: readonly string[];
+  readonly setAside: boolean;
+}
+
+/** Nothing offered, nothing applied unasked. */
+const NO_KEY: UsualKeys = { near: [], setAside: true };
+/** What a key of another line is offered on this one (see `unknownKeyIssue`). */
+const WRONG_LINE: UsualKeys = NO_KEY;
+
 /**
  * Words commonly written for a key of a line that are not its aliases, because they also mean
  * something else: the keys they are offered, in the order a user would expect, in place of their
@@ -372,14 +385,17 @@ function unknownKeyIssue(item: ItemNode, section: SectionId, line: number, lineI
  * registry) but on some ventilators the set pressure limit (from memory): its spelling neighbours
  * `map` and `pmean` are the mean pressure, the opposite of a maximum, and are not offered.
  */
-const USUAL_KEYS: Readonly<Partial<Record<SectionId, Readonly<Record<string, { readonly near: readonly string[]; readonly setAside: true }>>>>> = {
+const USUAL_KEYS: Readonly<Partial<Record<SectionId, Readonly<Record<string, UsualKeys>>>>> = {
   vent: {
     ip: { near: ['pinsp', 'pip'], setAside: true },
     pmax: { near: ['peak'], setAside: true },
+    // Times and the levels of APRV, which have no key: a key one letter away is another quantity
+    // (`tinsp` is not `pinsp`, `plow` and `tlow` are not `flow`), so none is offered.
+    tinsp: NO_KEY, ti: NO_KEY, te: NO_KEY, thigh: NO_KEY, tlow: NO_KEY, phigh: NO_KEY, plow: NO_KEY,
   },
 };
 
-function usualKeysOf(written: string, section: SectionId): { readonly near: readonly string[]; readonly setAside: boolean } | null {
+function usualKeysOf(written: string, section: SectionId): UsualKeys | null {
   const words = USUAL_KEYS[section];
   return words !== undefined && Object.hasOwn(words, written.toLowerCase()) ? words[written.toLowerCase()]! : null;
 }
