@@ -272,6 +272,8 @@ describe('an editing session with edits inside the brackets', () => {
     const texts: string[] = [];
     for (let c = 0; c <= typed.length; c++) texts.push(`${head}${typed.slice(0, c)}${tail}`, `${head} ${typed.slice(0, c)}${tail}`);
     texts.push(`${head} (12 kPa)${tail}`, `${head} ( 93 )${tail}`, `${head} (9${tail}`, `${head}(93)${tail}`, `${head} ${tail}`);
+    // A unit of two words with the bracket glued to it, and more glued after the bracket, typed.
+    for (const more of [' mm Hg(93)x', '(93)(94)']) for (let c = 0; c <= more.length; c++) texts.push(`${head}${more.slice(0, c)}${tail}`);
     for (const text of texts) {
       const got = snapshot(session.update(text));
       const fresh = snapshot(checkNote(text));
