@@ -42,3 +42,24 @@ describe('a ventilator word Pneumark has no key for', () => {
     expect(all?.findingCodes ?? []).not.toContain('PN201');
   });
 });
+
+describe('`ip` and `ep` on an oxygen line', () => {
+  // Commonly written for the inspiratory and expiratory pressures of NIV (common practice, no
+  // source): offered the line's own keys, by the support its device gives, never applied unasked.
+  it('are offered `ipap` and `epap` on an NIV line, and on one that names no device (read as NIV)', () => {
+    for (const line of ['oxygen niv, ip 14, ep 6', 'oxygen bilevel ip 14 ep 6']) {
+      expect(offered(line), line).toEqual([
+        ['`ip` is not a key of oxygen lines. Did you mean `ipap`?', ['Change to `ipap`']],
+        ['`ep` is not a key of oxygen lines. Did you mean `epap`?', ['Change to `epap`']],
+      ]);
+      expect(pn201(line).flatMap((f) => f.fixes.map((x) => x.preferred === true)), line).toEqual([false, false]);
+    }
+    expect(offered('oxygen fio2 0.4, ip 14')).toEqual([['`ip` is not a key of oxygen lines. Did you mean `ipap`?', ['Change to `ipap`']]]);
+  });
+
+  it('offer the level on a CPAP line for `ep`, nothing for `ip`, and nothing beside a device that sets no pressure', () => {
+    expect(offered('oxygen cpap, ep 8')).toEqual([['`ep` is not a key of oxygen lines. Did you mean `level`?', ['Change to `level`']]]);
+    expect(offered('oxygen cpap, ip 14')).toEqual([['`ip` is not a key of oxygen lines.', []]]);
+    expect(offered('oxygen mask, ip 14, ep 6').map(([, fixes]) => fixes)).toEqual([[], []]);
+  });
+});

@@ -350,7 +350,7 @@ function unknownKeyIssue(item: ItemNode, section: SectionId, line: number, lineI
   const elsewhere = FIELDS.filter((f) => f.aliases.includes(key.text.toLowerCase())).flatMap((f) => f.sections);
   // A key of another line is on the wrong line, not misspelt: no key of another quantity is
   // offered for it (`hb` on a vitals line is not the heart rate `hr`), but the line's own name.
-  const usual = renamed !== null ? null : elsewhere.length > 0 ? WRONG_LINE : usualKeysOf(key.text, section);
+  const usual = renamed !== null ? null : elsewhere.length > 0 ? WRONG_LINE : usualKeysOf(key.text, section, lineItems);
   const keys = renamed !== null ? { near: [renamed], setAside: false } : usual ?? settingsBeforeReadings(key.text, section, closest(key.text, candidates, Infinity));
   const near = renamed !== null || usual !== null ? keys.near : [...devices, ...keys.near].slice(0, 3);
   const lines = [...new Set(elsewhere)];
@@ -395,10 +395,29 @@ const USUAL_KEYS: Readonly<Partial<Record<SectionId, Readonly<Record<string, Usu
   },
 };
 
-function usualKeysOf(written: string, section: SectionId): UsualKeys | null {
+function usualKeysOf(written: string, section: SectionId, lineItems: readonly ItemNode[]): UsualKeys | null {
+  const lower = written.toLowerCase();
+  if (section === 'oxygen') return lower === 'ip' || lower === 'ep' ? supportKeys(lower, lineItems) : null;
   const words = USUAL_KEYS[section];
-  return words !== undefined && Object.hasOwn(words, written.toLowerCase()) ? words[written.toLowerCase()]! : null;
+  return words !== undefined && Object.hasOwn(words, lower) ? words[lower]! : null;
 }
+
+/**
+ * `ip` and `ep` on an oxygen line, commonly written for the inspiratory and expiratory pressures of
+ * NIV (common practice, no source): the line's own key by the support its device gives (the one
+ * rule of noninvasive-support.ts; a line that names no device reads as NIV), `level` for `ep` on
+ * a CPAP line, and nothing beside a device that gives no set pressure (an IPAP there is PN318).
+ */
+function supportKeys(written: 'ip' | 'ep', lineItems: readonly ItemNode[]): UsualKeys {
+  const device = deviceOfLine(lineItems);
+  if (givesNoSetPressure(device)) return NO_KEY;
+  if (supportOfDevice(device) === 'cpap') return written === 'ep' ? CPAP_LEVEL : NO_KEY;
+  return written === 'ip' ? NIV_IPAP : NIV_EPAP;
+}
+
+const NIV_IPAP: UsualKeys = { near: ['ipap'], setAside: true };
+const NIV_EPAP: UsualKeys = { near: ['epap'], setAside: true };
+const CPAP_LEVEL: UsualKeys = { near: ['level'], setAside: true };
 
 /**
  * The keys offered for an unknown key of a setting line, nearest first, without the readings
