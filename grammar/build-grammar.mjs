@@ -372,6 +372,11 @@ function spacedPairRule(pairKeys, units, keys) {
  */
 const BRACKET_CLOSED = `\\(\\s*${NUM_MAX}(?:\\s*[^\\s,#\\(\\)]+)?\\s*\\)${VALUE_END}`;
 /**
+ * A bracket whose `)` has more glued to it (`(93)x`, `(93)(94)`): the parser reads no mean from it
+ * and reports it as one word, to the end of its chunk.
+ */
+const BRACKET_GLUED = `\\(\\s*${NUM_MAX}(?:\\s*[^\\s,#\\(\\)]+)?\\s*\\)(?=[^\\s,#])${CHUNK_REST}`;
+/**
  * A bracket the parser reads as not closed: a number after `(` that no `)` follows after its word
  * (`(93`, `(93 mmHg`, `(93 hr 80`). The parser's finding takes a known unit after the number when
  * it is no key of the section, and the rest of the chunk it ends in.
@@ -382,7 +387,7 @@ function bracketUnclosed(units, keys) {
 
 /** A number in brackets where the parser reads none: after a value that is no blood pressure, or after a comma (PN105). */
 function strayBracketRule(units, keys) {
-  const rule = assemble(START, cap(STRAY, `(?:${BRACKET_CLOSED}|${bracketUnclosed(units, keys)})`));
+  const rule = assemble(START, cap(STRAY, `(?:${BRACKET_CLOSED}|${BRACKET_GLUED}|${bracketUnclosed(units, keys)})`));
   return { comment: 'A number in brackets that follows no blood pressure (hr 80 (93)): stray text for the parser (PN105).', match: rule.regex, captures: rule.captures };
 }
 
@@ -390,7 +395,8 @@ function strayBracketRule(units, keys) {
  * A blood pressure with its measured mean in brackets (`bp 120/80 (93)`, `bp 120 / 80 mmHg (93)`,
  * `bp 120/80 (93 mmHg)`, `bp 120/80(93)`, `bp 120/80 ( 93 )`): the parser reads the number in
  * brackets as the mean arterial pressure, with its unit. The bracket may be glued to the pair or to
- * its unit; one not closed (`bp 120/80 (93`) is reported (PN105) after a pair that is read.
+ * its unit; one not closed (`bp 120/80 (93`) or with more glued after its `)` (`bp 120/80 (93)x`)
+ * is reported (PN105) after a pair that is read.
  */
 function bracketedMeanRule(pairKeys, units, keys) {
   const rule = assemble(
@@ -407,6 +413,7 @@ function bracketedMeanRule(pairKeys, units, keys) {
     '(?:\\s*(?:', cap('keyword.other.unit', units.spaced), '(?=\\s*\\))', '|', cap('keyword.other.unit.unknown', '[^\\s,#\\(\\)]+'), '))?',
     '\\s*', cap('punctuation.definition.mean.end', '\\)'), VALUE_END,
     '|', cap(STRAY, bracketUnclosed(units, keys)),
+    '|', cap(STRAY, BRACKET_GLUED),
     ')',
   );
   return { comment: 'A blood pressure with its measured mean in brackets (bp 120/80 (93), bp 120/80 (93 mmHg)).', match: rule.regex, captures: rule.captures };

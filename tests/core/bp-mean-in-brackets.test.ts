@@ -87,6 +87,10 @@ describe('the mean in brackets, written with a unit, glued or with blanks', () =
     ['vitals bp 120 / 80(93) hr 80'],
     ['vitals bp 120/80 ( 93 ), hr 80'],
     ['vitals bp 120/80 ( 93 mm Hg ) hr 80'],
+    // The bracket glued to the second word of a unit of two words.
+    ['vitals bp 120/80 mm Hg(93) hr 80'],
+    ['vitals bp 120/80mm Hg(93), hr 80'],
+    ['vitals bp 120 / 80 mm Hg(93 mmHg) hr 80'],
   ])('`%s` reads as `bp 120/80 (93)`: the mean, the pressure and what follows, with no finding', (line) => {
     const text = `@ 08:00\n${line}`;
     expect(checkNote(text).findings).toEqual([]);
@@ -208,6 +212,43 @@ describe('the mean in brackets, written with a unit, glued or with blanks', () =
     // An unclosed bracket is left as written.
     expect(formatNote('vitals bp 120/80 (93')).toBe('vitals bp 120/80 (93');
   });
+
+  it('cuts a unit of two words where a bracket is glued to its second word, and lays it out with one blank before the bracket', () => {
+    const line = meanLine('vitals bp 120/80 mm Hg(93)');
+    expect(line.issues).toEqual([]);
+    expect(line.items[0]!.unit?.text).toBe('mm Hg');
+    expect(line.items[0]!.unit?.span).toMatchObject({ start: 17, end: 22 });
+    expect(line.items[1]!.value?.span).toMatchObject({ start: 23, end: 25 });
+    const once = formatNote('vitals bp 120/80 mm Hg(93)');
+    expect(once).toBe('vitals    bp 120/80 mm Hg (93)');
+    expect(formatNote(once)).toBe(once);
+  });
+
+  it('reports a bracket with something glued after its `)` as one finding on the whole word; the pressure and what follows are read', () => {
+    for (const [line, written] of [
+      ['vitals bp 120/80 (93)x, hr 80', '(93)x'],
+      ['vitals bp 120/80(93)x hr 80', '(93)x'],
+      ['vitals bp 120/80 (93 mmHg)x, hr 80', '(93 mmHg)x'],
+      ['vitals bp 120/80 mmHg(93)x, hr 80', '(93)x'],
+      ['vitals bp 120/80 mm Hg(93)x, hr 80', '(93)x'],
+      ['vitals bp 120/80 (93)(94), hr 80', '(93)(94)'],
+    ] as const) {
+      const result = checkNote(`@ 08:00\n${line}`);
+      expect(result.findings.map((f) => f.code), line).toEqual(['PN105']);
+      const [finding] = result.findings;
+      const start = line.indexOf(written);
+      expect(finding!.range, line).toMatchObject({ start: { character: start }, end: { character: start + written.length } });
+      expect(finding!.message, line).toContain(`\`${written}\` is not read`);
+      expect(finding!.message, line).toContain('glued');
+      const values = result.analysis.timeline.timepoints[0]!.values;
+      expect(values.get('mean_bp'), line).toBeUndefined();
+      expect(values.get('bp')?.stated.usable, line).toBe(true);
+      expect(values.get('hr')?.stated.value, line).toBe(80);
+    }
+    // After a value that is no blood pressure, it says where brackets are read, as a closed one does.
+    const [after] = checkNote('@ 08:00\nvitals hr 80 (93)x').findings;
+    expect([after?.code, after?.message.includes('only right after a blood pressure')]).toEqual(['PN105', true]);
+  });
 });
 
 describe('hover on the mean in brackets written with a unit', () => {
@@ -231,6 +272,8 @@ describe('an editing session with edits inside the brackets', () => {
     const texts: string[] = [];
     for (let c = 0; c <= typed.length; c++) texts.push(`${head}${typed.slice(0, c)}${tail}`, `${head} ${typed.slice(0, c)}${tail}`);
     texts.push(`${head} (12 kPa)${tail}`, `${head} ( 93 )${tail}`, `${head} (9${tail}`, `${head}(93)${tail}`, `${head} ${tail}`);
+    // A unit of two words with the bracket glued to it, and more glued after the bracket, typed.
+    for (const more of [' mm Hg(93)x', '(93)(94)']) for (let c = 0; c <= more.length; c++) texts.push(`${head}${more.slice(0, c)}${tail}`);
     for (const text of texts) {
       const got = snapshot(session.update(text));
       const fresh = snapshot(checkNote(text));

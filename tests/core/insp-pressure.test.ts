@@ -89,6 +89,35 @@ describe('a misspelt key nearer a setting than a reading', () => {
   });
 });
 
+describe('words written for a ventilator pressure that are no key (`ip`, `pmax`)', () => {
+  // Neither is an alias: each also means something else. `ip` is commonly written for the set
+  // inspiratory pressure (common practice, no source), and is one letter from the measured peak
+  // `pip`; `pmax` is the peak airway pressure in LOINC's naming (76531-3, "Pressure.max
+  // Respiratory system airway --on ventilator", the peak's code in our registry), but on some
+  // ventilators the set pressure limit (from memory). So each is offered what it is written
+  // for, and no fix is applied unasked.
+  const pn201 = (text: string) => checkNote(text).findings.filter((f) => f.code === 'PN201');
+  const offered = (text: string) => pn201(text).map((f) => [f.message, f.fixes.map((x) => [x.title, x.preferred === true])]);
+
+  it('offers `ip` the set inspiratory pressure `pinsp` first, then the peak `pip`, neither preferred', () => {
+    expect(offered('@ 08:00\nvent mode PC, ip 18, peep 5')).toEqual([
+      ['`ip` is not a key of vent lines. Did you mean `pinsp` or `pip`?', [['Change to `pinsp`', false], ['Change to `pip`', false]]],
+    ]);
+  });
+
+  it('offers `pmax` the peak pressure alone (not the mean airway pressure, its spelling neighbour), not preferred', () => {
+    expect(offered('@ 08:00\nvent mode VC, vt 450, pmax 30')).toEqual([
+      ['`pmax` is not a key of vent lines. Did you mean `peak`?', [['Change to `peak`', false]]],
+    ]);
+    // In capitals too, as a ventilator's screen writes it.
+    expect(offered('@ 08:00\nvent Pmax 30')[0]?.[0]).toBe('`Pmax` is not a key of vent lines. Did you mean `peak`?');
+  });
+
+  it('offers no ventilator key on other lines, where the spelling neighbours stay', () => {
+    expect(offered('@ 08:00\nvitals ip 30')).toEqual([['`ip` is not a key of vitals lines. Did you mean `bp`?', [['Change to `bp`', false]]]]);
+  });
+});
+
 // PN317. In pressure control the ventilator holds the airway at PEEP plus the set inspiratory
 // pressure during inspiration, so the measured peak reads about their sum (common practice, no
 // source). A peak near `pinsp` itself and far below PEEP + `pinsp` says `pinsp` was written as the

@@ -2,9 +2,10 @@
 // line endings, tabs and characters outside the BMP before the cursor (UTF-16 columns), half-typed
 // keys, completions applied with the edit they carry, quick fixes applied as the editor applies
 // them, incremental changes, and formatting that holds still once done.
+import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { CodeAction, CompletionItem, Hover, InlayHint, Position, TextEdit } from 'vscode-languageserver-protocol';
+import type { CodeAction, CompletionItem, Diagnostic, Hover, InlayHint, Position, TextEdit } from 'vscode-languageserver-protocol';
 import { applyEdits } from '../../server/src/core/service/text-edits';
 import { startClient, type LspClient } from './lsp-client';
 
@@ -160,4 +161,37 @@ describe('typing a note with CRLF line endings, tabs and emoji', () => {
     await note.type(note.end(1), '\nvent      fio2 0.4 ');
     expect((await note.complete(note.end(2))).map((c) => c.label)).not.toContain('%');
   });
+});
+
+describe('a note typed one character at a time', () => {
+  it('gets what the same text opened at once gets: diagnostics, outline, folding and hints', async () => {
+    const text = readFileSync(join(process.cwd(), 'samples/broken-note.pneu'), 'utf8') + readFileSync(join(process.cwd(), 'samples/icu-ventilated-lung-injury.pneu'), 'utf8');
+    const note = await Typed.open('typing-one-by-one.pneu', '');
+    let line = 0;
+    let character = 0;
+    for (let i = 0; i < text.length; i++) {
+      const c = text[i]!;
+      note.text += c;
+      note.version++;
+      // Sent as an editor sends keystrokes, without waiting for the analysis of each.
+      await client.connection.sendNotification('textDocument/didChange', {
+        textDocument: { uri: note.uri, version: note.version },
+        contentChanges: [{ range: { start: { line, character }, end: { line, character } }, text: c }],
+      });
+      if (c === '\n') { line++; character = 0; } else character++;
+    }
+    const version = note.version;
+    const typed = await client.diagnostics(note.uri, (p) => p.version === version);
+    const opened = await Typed.open('typing-opened-at-once.pneu', text);
+    const diagnostics = await client.diagnostics(opened.uri);
+    const plain = (list: readonly Diagnostic[]) => list.map((d) => ({ range: d.range, code: d.code, severity: d.severity, message: d.message }));
+    expect(typed.diagnostics.length).toBeGreaterThan(20);
+    expect(plain(typed.diagnostics)).toEqual(plain(diagnostics.diagnostics));
+    for (const method of ['textDocument/documentSymbol', 'textDocument/foldingRange']) {
+      expect(await client.connection.sendRequest(method, { textDocument: { uri: note.uri } }), method).toEqual(await client.connection.sendRequest(method, { textDocument: { uri: opened.uri } }));
+    }
+    const range = { start: { line: 0, character: 0 }, end: { line: note.lines().length, character: 0 } };
+    const hints = async (uri: string) => (await client.connection.sendRequest<InlayHint[]>('textDocument/inlayHint', { textDocument: { uri }, range })).map((h) => [h.position, h.label, h.tooltip ?? null]);
+    expect(await hints(note.uri)).toEqual(await hints(opened.uri));
+  }, 60_000);
 });

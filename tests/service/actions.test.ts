@@ -9,6 +9,7 @@ import { checkNote, type NoteResult } from '../../server/src/core/check-note';
 import type { StatedValue } from '../../server/src/core/analysis/model';
 import { within, withinAsWritten } from '../../server/src/core/analysis/bounds';
 import { fieldById } from '../../server/src/core/fields/registry';
+import { convert, HB_MMOL_PER_L, unitById } from '../../server/src/core/fields/units';
 import { displayUnit } from '../../server/src/core/analysis/read-value';
 import { applyEdits, codeActions, convertNoteUnits, editsOverlap, keepsValues, type ActionInfo, type GasUnit } from '../../server/src/core/service';
 import { FIX_CHECKS_PER_LINE } from '../../server/src/core/service/actions';
@@ -133,6 +134,18 @@ describe('writing out the unit a bare value was read in', () => {
     expect(after(note('units gas kPa', 'abg po2 9.|5'), 'Write the unit it was read in')).toBe(note('units gas kPa', 'abg po2 9.5 kPa'));
     expect(after('vitals hr 8|0', 'Write the unit it was read in')).toBe('vitals hr 80 /min');
     expect(after('abg 7.28/5|6/71/26', 'Write the unit the shorthand pressures were read in')).toBe('abg 7.28/56/71/26 mmHg');
+  });
+
+  it('names the value as it is written where its key is implied by its place, not by a key the line does not show', () => {
+    const titled = (marked: string) => actions(marked).list.find((a) => a.title.startsWith('Write the unit it was read in'))?.title;
+    // The measured mean in brackets after a blood pressure.
+    expect(titled('vitals bp 120/80 (9|3)')).toBe('Write the unit it was read in: (93 mmHg)');
+    expect(after('vitals bp 120/80 (9|3)', 'Write the unit it was read in')).toBe('vitals bp 120/80 (93 mmHg)');
+    // A device's flow, written after the device.
+    expect(titled('oxygen cannula |2')).toBe('Write the unit it was read in: 2 L/min');
+    expect(after('oxygen cannula |2', 'Write the unit it was read in')).toBe('oxygen cannula 2 L/min');
+    // With its key, as before.
+    expect(titled('vitals map 9|3')).toBe('Write the unit it was read in: map 93 mmHg');
   });
 
   it('not for a written unit, a fraction, a pH, or a doubtful value (its finding offers "Mark as kPa")', () => {
@@ -387,7 +400,9 @@ function tolerance(s: StatedValue): number {
     case 'mmHg': return 0.5 + 1e-6; // kPa to 1 decimal is ±0.375 mmHg; mmHg to 0 decimals ±0.5
     case 'fraction': return 0.005 + 1e-9;
     case 'C': return 0.05 + 1e-6;
-    case 'g/dL': return 0.05 + 1e-6;
+    // g/L to 0 decimals is ±0.05 g/dL; Hb mmol/L to 1 decimal, its usual writing, ±0.05 mmol/L,
+    // about ±0.08 g/dL (hb 3 g/dL is 1.9 mmol/L, 3.06 g/dL, and back 3 as written).
+    case 'g/dL': return Math.max(0.05, convert(0.05, unitById(HB_MMOL_PER_L)!, unitById('g/dL')!)!) + 1e-6;
     default: return 1e-9;
   }
 }
@@ -482,7 +497,7 @@ describe('action properties', () => {
           }
         }
       }
-    }), { numRuns: ACTION_RUNS });
+    }), { numRuns: ACTION_RUNS, examples: [['labs hb +3 #', 0]] });
   }, 60_000);
 
   /** Decimals a value is usually written with in each unit (more than these cannot always come back from a coarser unit). */

@@ -185,6 +185,25 @@ describe('units', () => {
     expect(first('place pb 90 |\nunits gas kPa\n@ 08:00').map(([l]) => l)).toEqual(['mmHg', 'kPa']);
   });
 
+  it('offers a set rate in Hz first where the mode in force is HFOV, whose rate is a frequency (a bare one reads in /min, PN302)', () => {
+    const units = (marked: string) => complete(marked).filter((c) => c.kind === 'unit').map((c) => [c.label, c.detail]);
+    const hzFirst = [['Hz', 'Set rate (the frequency of an oscillator, in HFOV)'], ['/min', 'Set rate (default unit)']];
+    expect(units('@ 08:00\nvent mode HFOV, rate 6 |')).toEqual(hzFirst);
+    expect(units('@ 08:00\nvent rate 6 |, mode HFOV')).toEqual(hzFirst);
+    // The mode carried from an earlier timepoint.
+    expect(units('@ 08:00\nvent mode HFOV, rate 6 Hz, map 20\n@ 09:00\nvent rate 7 |')).toEqual(hzFirst);
+    // Glued to the number too.
+    expect(complete('@ 08:00\nvent mode HFOV, rate 6H|').map((c) => c.label)).toEqual(['Hz']);
+    // Other modes: breaths per minute first.
+    expect(units('@ 08:00\nvent mode VC, rate 16 |').map(([l]) => l)).toEqual(['/min', 'Hz']);
+    expect(units('@ 08:00\nvent mode HFOV\n@ 09:00\nvent mode PC, rate 16 |').map(([l]) => l)).toEqual(['/min', 'Hz']);
+    // What the first unit gives is no finding.
+    const { result, position } = noteAt('@ 08:00\nvent mode HFOV, rate 6 |');
+    const [hz] = completionsAt(result, position);
+    const text = applyEdits(result.analysis.tree.lines.map((l) => l.text).join('\n'), [{ range: hz!.replace!, newText: hz!.insertText }]);
+    expect(checkNote(text).findings).toEqual([]);
+  });
+
   it('a unit being typed glued to its number replaces only the unit', () => {
     const items = complete('abg po2 71k|');
     expect(items.map((c) => c.label)).toEqual(['kPa']);
@@ -318,6 +337,19 @@ describe('while a value of several parts is typed', () => {
       expect(items[0]?.replace, marked).toEqual({ start: { line: 0, character: 7 }, end: { line: 0, character: marked.length - 1 } });
     }
     expect(labels('oxygen room air |')).toContain('fio2');
+  });
+
+  it('completes a device of two words after its key too (`device room a|`, also after other items)', () => {
+    for (const marked of ['oxygen device room |', 'oxygen device room a|', 'oxygen fio2 0.21, device ROOM  A|']) {
+      const items = complete(marked);
+      expect(items.map((c) => c.label), marked).toEqual(['room air']);
+      const start = marked.toLowerCase().indexOf('room');
+      expect(items[0]?.replace, marked).toEqual({ start: { line: 0, character: start }, end: { line: 0, character: marked.length - 1 } });
+      const applied = applyEdits(marked.slice(0, -1), [{ range: items[0]!.replace!, newText: items[0]!.insertText }]);
+      expect(checkNote(applied).findings.map((f) => f.code), applied).toEqual([]);
+    }
+    // The key's own word is not a device: after it, the devices of one word are offered as before.
+    expect(labels('oxygen device |')).toContain('room air');
   });
 });
 

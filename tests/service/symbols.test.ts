@@ -42,6 +42,11 @@ describe('documentSymbols', () => {
     expect(documentSymbols(checkNote(note('@ 08:00', '@ 25:10  bad', '@'))).map((s) => [s.name, s.detail])).toEqual([['08:00', '08:00'], ['bad', '25:10 (not read)'], ['line 3', 'time unknown']]);
     // On the first day a clock time says it all.
     expect(documentSymbols(checkNote(note('@ 08:00', '@ 09:30'))).map((s) => s.detail)).toEqual(['08:00', '09:30']);
+    // Part of a time that could not be read is named too, as its hover names it (`@ day 1 25:10`
+    // reads as day 1 with no time of day, which the outline alone would hide).
+    expect(documentSymbols(checkNote(note('@ day 1 25:10  handover', '@ day 2 0800  round'))).map((s) => s.detail)).toEqual(['day 1 (25:10 not read)', 'day 2 (0800 not read)']);
+    // A time that names its day says it once (`day 2 02:00`, not `day 2 02:00 (day 2)`).
+    expect(documentSymbols(checkNote(note('@ day 1 22:15', '@ day 2 02:00', '@ 08:00', '@ Day 3 09:30'))).map((s) => s.detail)).toEqual(['day 1 22:15', 'day 2 02:00', '08:00 (day 2)', 'Day 3 09:30']);
   });
 
   it('selects the `@` line, spans whole lines in UTF-16 and keeps children inside their parent', () => {

@@ -347,10 +347,14 @@ function unknownKeyIssue(item: ItemNode, section: SectionId, line: number, lineI
   const renamed = endExpiratoryName(key.text, section, lineItems);
   // Beside a device that gives no set airway pressure, no key of one is offered (it would be PN318).
   const candidates = section === 'oxygen' && givesNoSetPressure(deviceOfLine(lineItems)) ? keysInSection(section).filter(isNoPressureKey) : keysInSection(section);
-  const keys = renamed !== null ? { near: [renamed], setAside: false } : settingsBeforeReadings(key.text, section, closest(key.text, candidates, Infinity));
-  const near = renamed !== null ? keys.near : [...devices, ...keys.near].slice(0, 3);
   const elsewhere = FIELDS.filter((f) => f.aliases.includes(key.text.toLowerCase())).flatMap((f) => f.sections);
-  const where = elsewhere.length > 0 ? ` (\`${key.text}\` belongs on a ${[...new Set(elsewhere)].join(' or ')} line)` : '';
+  // A key of another line is on the wrong line, not misspelt: no key of another quantity is
+  // offered for it (`hb` on a vitals line is not the heart rate `hr`), but the line's own name.
+  const usual = renamed !== null ? null : elsewhere.length > 0 ? WRONG_LINE : usualKeysOf(key.text, section, lineItems);
+  const keys = renamed !== null ? { near: [renamed], setAside: false } : usual ?? settingsBeforeReadings(key.text, section, closest(key.text, candidates, Infinity));
+  const near = renamed !== null || usual !== null ? keys.near : [...devices, ...keys.near].slice(0, 3);
+  const lines = [...new Set(elsewhere)];
+  const where = lines.length > 0 ? ` (\`${key.text}\` belongs on ${/^[aeiou]/.test(lines[0]!) ? 'an' : 'a'} ${lines.join(' or ')} line)` : '';
   const hint = near.length > 0 ? ` Did you mean ${near.map((k) => `\`${k}\``).join(' or ')}?` : '';
   return {
     check: 'unknown-key',
@@ -361,6 +365,59 @@ function unknownKeyIssue(item: ItemNode, section: SectionId, line: number, lineI
     fixes: near.map((k) => ({ title: `Change to \`${k}\``, edits: [{ span: key.span, newText: k }], preferred: near.length === 1 && !keys.setAside && safeKeyFix(key.text.toLowerCase(), k.toLowerCase()) })),
   };
 }
+
+interface UsualKeys {
+  readonly near: readonly string[];
+  readonly setAside: boolean;
+}
+
+/** Nothing offered, nothing applied unasked. */
+const NO_KEY: UsualKeys = { near: [], setAside: true };
+/** What a key of another line is offered on this one (see `unknownKeyIssue`). */
+const WRONG_LINE: UsualKeys = NO_KEY;
+
+/**
+ * Words commonly written for a key of a line that are not its aliases, because they also mean
+ * something else: the keys they are offered, in the order a user would expect, in place of their
+ * spelling neighbours, and never applied unasked (`setAside`). `ip` is commonly the set inspiratory
+ * pressure (common practice, no source), and one letter from the measured peak `pip`; `pmax` is the
+ * peak airway pressure in LOINC's naming (76531-3, "Pressure.max", the peak's code in the field
+ * registry) but on some ventilators the set pressure limit (from memory): its spelling neighbours
+ * `map` and `pmean` are the mean pressure, the opposite of a maximum, and are not offered.
+ */
+const USUAL_KEYS: Readonly<Partial<Record<SectionId, Readonly<Record<string, UsualKeys>>>>> = {
+  vent: {
+    ip: { near: ['pinsp', 'pip'], setAside: true },
+    pmax: { near: ['peak'], setAside: true },
+    // Times and the levels of APRV, which have no key: a key one letter away is another quantity
+    // (`tinsp` is not `pinsp`, `plow` and `tlow` are not `flow`), so none is offered.
+    tinsp: NO_KEY, ti: NO_KEY, te: NO_KEY, thigh: NO_KEY, tlow: NO_KEY, phigh: NO_KEY, plow: NO_KEY,
+  },
+};
+
+function usualKeysOf(written: string, section: SectionId, lineItems: readonly ItemNode[]): UsualKeys | null {
+  const lower = written.toLowerCase();
+  if (section === 'oxygen') return lower === 'ip' || lower === 'ep' ? supportKeys(lower, lineItems) : null;
+  const words = USUAL_KEYS[section];
+  return words !== undefined && Object.hasOwn(words, lower) ? words[lower]! : null;
+}
+
+/**
+ * `ip` and `ep` on an oxygen line, commonly written for the inspiratory and expiratory pressures of
+ * NIV (common practice, no source): the line's own key by the support its device gives (the one
+ * rule of noninvasive-support.ts; a line that names no device reads as NIV), `level` for `ep` on
+ * a CPAP line, and nothing beside a device that gives no set pressure (an IPAP there is PN318).
+ */
+function supportKeys(written: 'ip' | 'ep', lineItems: readonly ItemNode[]): UsualKeys {
+  const device = deviceOfLine(lineItems);
+  if (givesNoSetPressure(device)) return NO_KEY;
+  if (supportOfDevice(device) === 'cpap') return written === 'ep' ? CPAP_LEVEL : NO_KEY;
+  return written === 'ip' ? NIV_IPAP : NIV_EPAP;
+}
+
+const NIV_IPAP: UsualKeys = { near: ['ipap'], setAside: true };
+const NIV_EPAP: UsualKeys = { near: ['epap'], setAside: true };
+const CPAP_LEVEL: UsualKeys = { near: ['level'], setAside: true };
 
 /**
  * The keys offered for an unknown key of a setting line, nearest first, without the readings

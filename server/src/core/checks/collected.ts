@@ -75,7 +75,7 @@ export const badTime = syntaxCheck('PN104', 'bad-time', 'Unreadable time', 'erro
 }, 'bad-time');
 
 export const strayText = syntaxCheck('PN105', 'stray-text', 'Stray text', 'error', {
-  fires: 'A number (or other text) appears where a key was expected, or a number is typed with digits other than 0–9 (fullwidth `８０`, Arabic-Indic `٨٠`), which are not read as a number. At information level: a full stop that ends a line of items (`hr 80.`, read as `hr 80`), or a comma that separates nothing (at the start of a line, right after its section word or `@`, a second one between two items, where a value may be missing, or between the time and the label of a timepoint); the line is read without it.',
+  fires: 'A number (or other text) appears where a key was expected, or a number is typed with digits other than 0–9 (fullwidth `８０`, Arabic-Indic `٨٠`), which are not read as a number. At information level: a full stop that ends a line of items (`hr 80.`, read as `hr 80`), or a comma that separates nothing (at the start of a line, right after its section word or `@`, a second one between two items, where a value may be missing, or between the time and the label of a timepoint); the line is read without it. A number in brackets anywhere but right after a blood pressure, one not closed (`bp 120/80 (93`), or one with more glued after its `)` (`bp 120/80 (93)x`) is not read as the measured mean; the blood pressure is.',
   example: 'vitals hr 118 120',
   fix: 'Give the number its key (`rr 20`), or remove it; write a number in the digits 0–9 (a fix does it). A full stop or a comma that separates nothing has a fix that removes it, also for the whole note.',
 });
@@ -89,7 +89,7 @@ export const badShorthand = syntaxCheck('PN106', 'bad-shorthand', 'Unreadable sh
 export const unknownKey = readCheck('PN201', 'unknown-key', 'Unknown key', 'error', ['units'], FORMAT_RULE, {
   fires: 'An item key is not one of the keys (or aliases) of its section.',
   example: 'vitals hr 118, rrr 26',
-  fix: 'Use a key of the section; the quick fix offers the nearest ones, and at the start of an oxygen line the nearest device, also for a device of two words with one misspelt (`room aor` → `room air`, both words at once). grammar/README.md lists the keys of each section.',
+  fix: 'Use a key of the section; the quick fix offers the nearest ones, and at the start of an oxygen line the nearest device, also for a device of two words with one misspelt (`room aor` → `room air`, both words at once). A key of another line is not misspelt: the message says where it belongs, and no key of another quantity is offered (`hb` on a vitals line is not `hr`). Words commonly written for a ventilator pressure are offered what they stand for, never applied unasked (`ip`: `pinsp`, then `pip`; `pmax`: `peak`; on an NIV oxygen line `ip` and `ep`: `ipap` and `epap`), and ventilator times and APRV levels, which have no key (`tinsp`, `plow`), are offered none. grammar/README.md lists the keys of each section.',
 });
 
 export const unknownUnit = readCheck('PN202', 'unknown-unit', 'Unknown unit', 'error', ['units'], FORMAT_RULE, {

@@ -139,8 +139,12 @@ function addUnitAction(result: NoteResult, s: StatedValue): ActionInfo[] {
   const end = s.item.value.span.end;
   const after = { line: s.line, character: end };
   if (result.findings.some((f) => f.fixes.some((fix) => fix.edits.some((e) => comparePositions(e.range.start, after) === 0)))) return [];
+  // Named as the line will show it: with its key, or where the key is implied by its place, the
+  // value alone (a device's flow) or in its brackets (the mean after a blood pressure).
+  const written = `${s.item.value.text} ${unit}`;
+  const shown = s.item.key !== null ? `${s.item.key.text} ${written}` : s.item.implied === 'bracketed-mean' ? `(${written})` : written;
   return [{
-    title: `Write the unit it was read in: ${keyOf(s)} ${s.item.value.text} ${unit}`,
+    title: `Write the unit it was read in: ${shown}`,
     kind: 'refactor.rewrite',
     edits: [{ range: { start: { line: s.line, character: end }, end: { line: s.line, character: end } }, newText: ` ${unit}` }],
   }];

@@ -7,7 +7,8 @@
  *   line starts with its device; a gas line may start with a shorthand);
  * - after a key that takes a word (`mode`, `sex`, `gas`, `device`): its words;
  * - after a key and a number (or a shorthand gas, or a device's flow): the units it takes (for a
- *   gas pressure the note's gas unit first, as a bare number is read in it), then
+ *   gas pressure the note's gas unit first, as a bare number is read in it; for the set rate
+ *   under HFOV, Hz first, as an oscillator's frequency is written), then
  *   the keys that may follow (a unit may be left out); on an oxygen line, the keys of its device
  *   (no flow on room air; IPAP and EPAP for NIV, a level for CPAP);
  * - after the first word of a unit of two words the key takes (`po2 80 mm |`): that unit, whole.
@@ -29,7 +30,8 @@ import type { Position, Range } from '../types';
 import { ITEM_COLUMN } from './format';
 import { supportOfDevice, SUPPORT_PRESSURE_FIELDS, SUPPORT_PRESSURES } from '../analysis/noninvasive-support';
 import { NONE } from '../util/lists';
-import { isValidPosition, itemAt, lineAt, lineRange } from './locate';
+import { isValidPosition, itemAt, lineAt, lineRange, timepointOfLine } from './locate';
+import { OSCILLATION_MODE } from '../physiology/mechanics';
 import type { StatedValue } from '../analysis/model';
 import type { GasUnit } from './unit-conversion';
 import type { CompletionInfo } from './types';
@@ -45,10 +47,10 @@ export function completionsAt(result: NoteResult, position: Position): Completio
   if (!isValidPosition(position)) return [];
   const node = lineAt(result, position.line);
   if (!node || position.character > node.text.length) return [];
-  return keepNextWord(node, position.character, completionsOnLine(node, position, () => gasUnitOfLine(result, position.line)));
+  return keepNextWord(node, position.character, completionsOnLine(node, position, (field) => firstUnitOf(result, position.line, field)));
 }
 
-function completionsOnLine(node: LineNode, position: Position, gasUnit: () => GasUnit): CompletionInfo[] {
+function completionsOnLine(node: LineNode, position: Position, firstUnit: FirstUnit): CompletionInfo[] {
   const text = node.text;
   const ch = position.character;
   const hash = text.indexOf('#');
@@ -114,8 +116,10 @@ function completionsOnLine(node: LineNode, position: Position, gasUnit: () => Ga
   // A pair or a spaced shorthand gas being typed (`bp 120 / |`, `abg 7.3 / 56 / |`): numbers come next.
   if (last.text.endsWith('/')) return [];
   if (section.id === 'oxygen' && !afterNumber) {
-    // A device of two words being typed (`oxygen room a|`): the lead so far, from the first word after the section.
-    const devices = leadDeviceCompletions(text, chunks[1]!.span.start, ch, lineRange(line, chunks[1]!.span.start, wordEnd));
+    // A device of two words being typed (`oxygen room a|`, `device room a|`): the lead so far, from
+    // the first word after the section, or after the key `device`.
+    const leadStart = deviceLeadStart(chunks);
+    const devices = leadDeviceCompletions(text, leadStart, ch, lineRange(line, leadStart, wordEnd));
     if (devices) return devices;
   }
 
@@ -137,7 +141,7 @@ function completionsOnLine(node: LineNode, position: Position, gasUnit: () => Ga
 
   if (afterNumber) {
     // `key 71mm|`: the number belongs to the last key, which has no value yet.
-    if (item.key && !item.value && field && field.kind !== 'word' && !isFraction(field, number.value)) return narrow(unitCompletions(field, unitRange, gasUnit), unitTyped);
+    if (item.key && !item.value && field && field.kind !== 'word' && !isFraction(field, number.value)) return narrow(unitCompletions(field, unitRange, firstUnit), unitTyped);
     return [];
   }
   if (!item.value) {
@@ -148,7 +152,7 @@ function completionsOnLine(node: LineNode, position: Position, gasUnit: () => Ga
   if (item.unit === null && item.value.kind !== 'word' && !(field && item.number !== null && isFraction(field, item.number))) {
     // Its units first, then the next keys: a unit may be left out (`hr 80 rr 18`).
     const unitField = item.implied === 'shorthand' ? shorthandUnitField(section.id, items) : field;
-    const units = unitField ? narrow(unitCompletions(unitField, replace, gasUnit), typed) : [];
+    const units = unitField ? narrow(unitCompletions(unitField, replace, firstUnit), typed) : [];
     return [...units, ...keys()];
   }
   return keys();
@@ -216,6 +220,15 @@ function keepNextWord(node: LineNode, ch: number, items: CompletionInfo[]): Comp
     else if (role !== 'number' && role !== 'unit' && role !== 'timepoint') out.push({ ...c, insertText: `${c.insertText} `, replace: lineRange(r.start.line, ch, ch) });
   }
   return out;
+}
+
+/**
+ * Where a device being typed starts: after the last key `device` written before the cursor with a
+ * word after it (`oxygen fio2 0.21, device room a|`), else at the first word after the section.
+ */
+function deviceLeadStart(chunks: readonly { readonly text: string; readonly span: { readonly start: number } }[]): number {
+  for (let k = chunks.length - 2; k >= 1; k--) if (fieldFor('oxygen', chunks[k]!.text)?.id === 'device') return chunks[k + 1]!.span.start;
+  return chunks[1]!.span.start;
 }
 
 /**
@@ -353,21 +366,35 @@ function wordCompletions(field: FieldDef | undefined, replace: Range): Completio
  * The units a field takes, the one a bare number is read in first: the field's default unit, or
  * for a gas pressure the note's gas unit where the line is (kPa after `units gas kPa`).
  */
-function unitCompletions(field: FieldDef, replace: Range, gasUnit: () => GasUnit): CompletionInfo[] {
+function unitCompletions(field: FieldDef, replace: Range, firstUnit: FirstUnit): CompletionInfo[] {
   const out: CompletionInfo[] = [];
   const seen = new Set<string>();
   const units = field.units ?? [];
-  const gas = field.bare === 'gas' ? gasUnit() : null;
-  const bare = gas !== null && units.includes(gas) ? gas : units[0];
-  for (const id of bare === undefined ? units : [bare, ...units.filter((u) => u !== bare)]) {
+  const chosen = firstUnit(field);
+  const first = chosen !== null && units.includes(chosen.unit) ? chosen.unit : units[0];
+  for (const id of first === undefined ? units : [first, ...units.filter((u) => u !== first)]) {
     if (id === 'fraction' || id === 'ph') continue;
     const label = unitLabel(id);
     if (seen.has(label)) continue;
     seen.add(label);
-    const note = id !== bare ? '' : gas !== null ? " (the note's gas unit)" : ' (default unit)';
+    const note = id === first && chosen !== null && chosen.unit === id ? ` (${chosen.why})` : id === (field.bare === 'gas' ? first : units[0]) ? ' (default unit)' : '';
     out.push({ label, kind: 'unit', detail: `${field.label}${note}`, insertText: label, replace });
   }
   return out;
+}
+
+/** The unit offered first for a field on the cursor's line, and why; null: the field's default unit. */
+type FirstUnit = (field: FieldDef) => { readonly unit: string; readonly why: string } | null;
+
+/**
+ * The unit to offer first: for a gas pressure the note's gas unit, in which a bare one is read;
+ * for the set rate under HFOV (the mode in force at the line's timepoint) Hz, as an oscillator's
+ * frequency is written (a bare rate reads in /min, and 6 /min in HFOV is PN302).
+ */
+function firstUnitOf(result: NoteResult, line: number, field: FieldDef): { readonly unit: string; readonly why: string } | null {
+  if (field.bare === 'gas') return { unit: gasUnitOfLine(result, line), why: "the note's gas unit" };
+  if (field.id === 'vent_rate' && timepointOfLine(result, line)?.values.get('mode')?.stated.word === OSCILLATION_MODE) return { unit: 'Hz', why: 'the frequency of an oscillator, in HFOV' };
+  return null;
 }
 
 /**

@@ -279,6 +279,14 @@ export function writtenTime(node: TimepointLine, end: number): string {
   return trimmed(node.text.slice(node.marker.span.end, node.label ? node.label.span.start : end), ',');
 }
 
+/**
+ * Text between a time that was read and the label (`@ day 1 25:10`, `@ day 2 0800`): part of the
+ * time that was not; '' when there is none (or no time was read). `end`: where the content ends.
+ */
+export function unreadTime(node: TimepointLine, end: number): string {
+  return node.time ? trimmed(node.text.slice(node.time.span.end, node.label ? node.label.span.start : end), ',.') : '';
+}
+
 /** The text without blanks (and the punctuation given) at either end; a loop, not a regex, so long runs of blanks cost nothing. */
 function trimmed(text: string, punctuation: string): string {
   const cut = (i: number) => isBlank(text.charCodeAt(i)) || /\s/.test(text.charAt(i)) || punctuation.includes(text.charAt(i));
@@ -330,8 +338,7 @@ function timepointHover(result: NoteResult, node: TimepointLine, start: number, 
   const tp = result.analysis.timeline.timepoints.find((t) => t.line === node.line) ?? null;
   const written = writtenTime(node, end);
   const title = `**${code(written ? `@ ${written}` : '@')}**${node.label ? ` — ${escapeMarkdown(node.label.text)}` : ''}`;
-  // Text between a time that was read and the label (`@ day 1 25:10`, `@ day 2 0800`): part of the time that was not.
-  const unread = node.time ? trimmed(node.text.slice(node.time.span.end, node.label ? node.label.span.start : end), ',.') : '';
+  const unread = unreadTime(node, end);
   const parts: (string | null)[] = [title, timeParagraph(node, tp, written), unread ? `${code(unread)} after it is not a time Pneumark reads.` : null];
   if (tp) {
     const carried = [...tp.values.values()]

@@ -1,7 +1,8 @@
 /**
  * The outline of a note and its folding ranges. Timepoints are the outline: each names its
  * label, shows its time (an offset with the time it gives, a clock time written alone with its
- * day past the first: `07:00 (day 2)`, one that could not be read as written: `25:10 (not read)`), spans its lines (trailing blank lines excluded) and holds
+ * day past the first: `07:00 (day 2)`, one that could not be read as written: `25:10 (not read)`,
+ * `day 1 (25:10 not read)`), spans its lines (trailing blank lines excluded) and holds
  * its section lines as children. Lines before the first timepoint that describe the patient, the
  * place and the units form a "header" symbol. Each timepoint spanning more than one line folds, and so
  * does each `# region` … `# endregion` pair of comment lines.
@@ -10,7 +11,7 @@ import type { NoteResult } from '../check-note';
 import type { Timepoint } from '../analysis/model';
 import { sectionById } from '../fields/sections';
 import type { LineNode, SectionLine } from '../syntax/tree';
-import { clockText, writtenTime } from './hover';
+import { clockText, unreadTime, writtenTime } from './hover';
 import { contentEnd, contentStart } from './locate';
 import type { FoldingRangeInfo, SymbolInfo } from './types';
 
@@ -48,10 +49,14 @@ function timeDetail(result: NoteResult, tp: Timepoint): string {
   const node = tp.line === null ? null : result.analysis.tree.lines[tp.line];
   const written = node?.kind === 'timepoint' && node.time ? node.time.text : null;
   const computed = tp.time.minutes !== null ? clockText(tp.time.minutes) : tp.time.day !== null ? `day ${tp.time.day}` : null;
+  // Part of the time not read (`@ day 1 25:10` reads as day 1 alone) is named, as its hover names it.
+  const unreadPart = node?.kind === 'timepoint' ? unreadTime(node, contentEnd(node)) : '';
+  if (written && unreadPart) return `${written} (${unreadPart} not read)`;
   if (written && computed && written.startsWith('+')) return `${written} (${computed})`;
   // A clock time alone falls on the day the timeline gives it: past the first day, say which
-  // (`07:00 (day 2)` after `@ day 1 23:30`), so the outline of a note of several days reads true.
-  if (written && node?.kind === 'timepoint' && node.time?.kind === 'clock' && tp.time.day !== null && tp.time.day > 1) return `${written} (day ${tp.time.day})`;
+  // (`07:00 (day 2)` after `@ day 1 23:30`), so the outline of a note of several days reads true;
+  // one written with its day (`day 2 02:00`) says it already.
+  if (written && node?.kind === 'timepoint' && node.time?.kind === 'clock' && node.time.day === null && tp.time.day !== null && tp.time.day > 1) return `${written} (day ${tp.time.day})`;
   // A time that could not be read is named as written, as its hover and its findings name it.
   const unread = node?.kind === 'timepoint' && !node.time ? writtenTime(node, contentEnd(node)) : '';
   if (unread) return `${unread} (not read)`;

@@ -1235,10 +1235,14 @@ class Item implements ItemNode, Span {
   }
 }
 
-/** What `bracketAt` found: no number in brackets there, one closed by `)`, one whose `)` is missing. */
+/**
+ * What `bracketAt` found: no number in brackets there, one closed by `)`, one whose `)` is
+ * missing, one whose `)` has more glued to it (`(93)x`).
+ */
 const NO_BRACKET = 0;
 const CLOSED = 1;
 const UNCLOSED = 2;
+const GLUED = 3;
 
 /**
  * What `bracketAt` read last (read right after the call, as SCANNED is): the number inside the
@@ -1270,8 +1274,9 @@ function blanksEnd(source: string, at: number, limit: number): number {
  * comma or the end of the words comes next); UNCLOSED when the number is not followed by a `)`
  * (at the end of the line, at a comma or at another word): then the word after the number is kept
  * as its unit only when it is a unit the format knows and no key of `section` (null: any word
- * that is a unit), so `(93 hr 80` leaves `hr 80` to be read. NO_BRACKET when no number follows
- * the `(`, or the `)` is glued to more (`(93)x`). What it read is left in BRACKET.
+ * that is a unit), so `(93 hr 80` leaves `hr 80` to be read; GLUED when the `)` is glued to more
+ * (`(93)x`, `(93)(94)`: the bracket then ends where that run of characters does, at a blank or a
+ * comma). NO_BRACKET when no number follows the `(`. What it read is left in BRACKET.
  */
 function bracketAt(source: string, open: number, limit: number, section: SectionId | null): number {
   if (open < 0 || open >= limit || source.charCodeAt(open) !== 0x28 /* ( */) return NO_BRACKET;
@@ -1299,10 +1304,14 @@ function bracketAt(source: string, open: number, limit: number, section: Section
   }
   const close = blanksEnd(source, at, limit);
   if (close < limit && source.charCodeAt(close) === 0x29 /* ) */) {
-    const after = close + 1;
-    if (after < limit && !isBlank(source.charCodeAt(after)) && source.charCodeAt(after) !== 0x2c /* , */) return NO_BRACKET;
+    let after = close + 1;
+    if (after >= limit || isBlank(source.charCodeAt(after)) || source.charCodeAt(after) === 0x2c /* , */) {
+      BRACKET.end = after;
+      return CLOSED;
+    }
+    while (after < limit && !isBlank(source.charCodeAt(after)) && source.charCodeAt(after) !== 0x2c /* , */) after++;
     BRACKET.end = after;
-    return CLOSED;
+    return GLUED;
   }
   // Unclosed: the word after the number stays its unit only when it is one (`(93 mmHg`), not a key (`(93 hr 80`).
   if (BRACKET.unitStart >= 0) {
@@ -1353,6 +1362,21 @@ function unclosedMeanIssue(source: string, open: number, end: number): SyntaxIss
     span: { start: open, end },
     message: `\`${written}\` has no closing bracket: the measured mean after a blood pressure is written in brackets, \`${closed}\`, and is not read until the bracket is closed.`,
     fixes: [{ title: `Write \`${closed}\``, edits: [{ span: { start: open, end }, newText: closed }] }],
+  };
+}
+
+/**
+ * The finding on the bracket of a measured mean with more glued after its `)` (`bp 120/80 (93)x`),
+ * from `open`: the mean is not read (what is glued may change what it says), the pressure is.
+ */
+function gluedMeanIssue(source: string, open: number, end: number): SyntaxIssue {
+  const written = source.slice(open, end);
+  const close = written.indexOf(')') + 1;
+  return {
+    check: 'stray-text',
+    span: { start: open, end },
+    message: `\`${written}\` is not read: \`${written.slice(close)}\` is glued to the bracket of the measured mean. Write the mean alone in its brackets, \`${written.slice(0, close)}\`, with a blank or a comma after them.`,
+    fixes: NONE,
   };
 }
 
@@ -1609,15 +1633,20 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
             // also glued to the pair or its unit (`120/80(93)`, `120/80 mmHg(93)`: cut off the unit).
             const cut = unit === null ? -1 : unit.text.indexOf('(');
             const after = chunks[i];
-            const open = unit !== null && cut >= 0 ? unit.start + cut : after !== undefined && !after.afterComma ? after.start : -1;
+            // `120/80 mm Hg(93)`: glued to the second word of a unit of two words, which ends there.
+            const second = unit !== null && cut < 0 && after !== undefined && !after.afterComma ? after.text.indexOf('(') : -1;
+            const twoWords = unit !== null && second > 0 && isKnownUnitSpelling(`${unit.text} ${after!.text.slice(0, second)}`);
+            const open = twoWords ? after!.start + second : unit !== null && cut >= 0 ? unit.start + cut : after !== undefined && !after.afterComma ? after.start : -1;
             const found = bracketAt(source, open, limit, section);
-            if (found !== NO_BRACKET && (found === UNCLOSED || fieldFor(section, 'map') !== undefined)) {
-              if (unit !== null && cut >= 0) unit = cut === 0 ? null : token(unit.text.slice(0, cut), unit.start, open);
+            if (found !== NO_BRACKET && (found !== CLOSED || fieldFor(section, 'map') !== undefined)) {
+              if (twoWords) unit = token(source.slice(unit!.start, open), unit!.start, open);
+              else if (unit !== null && cut >= 0) unit = cut === 0 ? null : token(unit.text.slice(0, cut), unit.start, open);
               items[count++] = otherItem(key.text, keyName, null, field, value, unit, key.start);
               const mean = found === CLOSED ? bracketedMean(source, section) : null;
               if (mean !== null) items[count++] = mean;
               const end = chunksThrough(chunks, i, BRACKET.end);
               if (found === UNCLOSED) issues.push(unclosedMeanIssue(source, open, end));
+              else if (found === GLUED) issues.push(gluedMeanIssue(source, open, end));
               i += BRACKET_CHUNKS;
               continue;
             }

@@ -1,0 +1,65 @@
+// What an unknown key is offered (PN201), as a user reads it: a key written on the wrong line is
+// not misspelt, so no key of another quantity is offered for it (`hb` on a vitals line is not the
+// heart rate `hr`); a word that names a ventilator quantity Pneumark has no key for (a time, an
+// APRV level) is offered none rather than a key one letter away (`tinsp`, the inspiratory time,
+// is not the set inspiratory pressure `pinsp`), and never a fix applied unasked. Our rules, common
+// practice of safe fixes, no source.
+import { describe, expect, it } from 'vitest';
+import { checkNote } from '../../server/src/core';
+import { codeActions } from '../../server/src/core/service';
+
+const pn201 = (line: string) => checkNote(`@ 08:00\n${line}`).findings.filter((f) => f.code === 'PN201');
+const offered = (line: string) => pn201(line).map((f) => [f.message, f.fixes.map((x) => x.title)]);
+
+describe('a key written on the wrong line', () => {
+  it('says where it belongs, and offers no key of another quantity', () => {
+    expect(offered('vitals hb 12')).toEqual([['`hb` is not a key of vitals lines (`hb` belongs on a labs or abg or vbg line).', []]]);
+    expect(offered('abg hr 80')).toEqual([['`hr` is not a key of abg lines (`hr` belongs on a vitals line).', []]]);
+    expect(offered('vitals vt 400')).toEqual([['`vt` is not a key of vitals lines (`vt` belongs on a vent line).', []]]);
+    expect(offered('vitals pco2 40')).toEqual([['`pco2` is not a key of vitals lines (`pco2` belongs on an abg or vbg line).', []]]);
+    expect(offered('vitals fio2 0.4')).toEqual([['`fio2` is not a key of vitals lines (`fio2` belongs on an oxygen or vent or abg line).', []]]);
+    expect(offered('vent ipap 14')).toEqual([['`ipap` is not a key of vent lines (`ipap` belongs on an oxygen line).', []]]);
+  });
+
+  it('keeps the line\'s own name of the end-expiratory pressure (`peep` on an NIV oxygen line is `epap`)', () => {
+    expect(offered('oxygen niv, ipap 14, peep 5')).toEqual([['`peep` is not a key of oxygen lines (`peep` belongs on a vent line). Did you mean `epap`?', ['Change to `epap`']]]);
+  });
+
+  it('still offers a near key for a misspelt one that is no key anywhere', () => {
+    expect(offered('vitals hrr 80')[0]?.[1]).toContain('Change to `hr`');
+  });
+});
+
+describe('a ventilator word Pneumark has no key for', () => {
+  it.each([['tinsp 1.0'], ['ti 1.0'], ['tlow 0.5'], ['thigh 4'], ['plow 0'], ['phigh 28']])('`vent mode APRV, %s` is reported with no key offered and nothing to apply unasked', (item) => {
+    const line = `vent mode APRV, ${item}`;
+    const [finding] = pn201(line);
+    const word = item.split(' ')[0];
+    expect(finding?.message).toBe(`\`${word}\` is not a key of vent lines.`);
+    expect(finding?.fixes).toEqual([]);
+    const result = checkNote(`@ 08:00\n${line}`);
+    const all = codeActions(result, { start: { line: 0, character: 0 }, end: { line: 1, character: 0 } }).find((a) => a.kind === 'source.fixAll');
+    expect(all?.findingCodes ?? []).not.toContain('PN201');
+  });
+});
+
+describe('`ip` and `ep` on an oxygen line', () => {
+  // Commonly written for the inspiratory and expiratory pressures of NIV (common practice, no
+  // source): offered the line's own keys, by the support its device gives, never applied unasked.
+  it('are offered `ipap` and `epap` on an NIV line, and on one that names no device (read as NIV)', () => {
+    for (const line of ['oxygen niv, ip 14, ep 6', 'oxygen bilevel ip 14 ep 6']) {
+      expect(offered(line), line).toEqual([
+        ['`ip` is not a key of oxygen lines. Did you mean `ipap`?', ['Change to `ipap`']],
+        ['`ep` is not a key of oxygen lines. Did you mean `epap`?', ['Change to `epap`']],
+      ]);
+      expect(pn201(line).flatMap((f) => f.fixes.map((x) => x.preferred === true)), line).toEqual([false, false]);
+    }
+    expect(offered('oxygen fio2 0.4, ip 14')).toEqual([['`ip` is not a key of oxygen lines. Did you mean `ipap`?', ['Change to `ipap`']]]);
+  });
+
+  it('offer the level on a CPAP line for `ep`, nothing for `ip`, and nothing beside a device that sets no pressure', () => {
+    expect(offered('oxygen cpap, ep 8')).toEqual([['`ep` is not a key of oxygen lines. Did you mean `level`?', ['Change to `level`']]]);
+    expect(offered('oxygen cpap, ip 14')).toEqual([['`ip` is not a key of oxygen lines.', []]]);
+    expect(offered('oxygen mask, ip 14, ep 6').map(([, fixes]) => fixes)).toEqual([[], []]);
+  });
+});
