@@ -28,6 +28,7 @@ describe('PN401 judges a PaO2 against the full alveolar gas equation (Fenn, Rahn
     expect(derived(text, 'aa_gradient').value).toBe(0);
     expect(derived(text, 'aa_gradient').notes.join(' ')).toMatch(/full alveolar gas equation/);
     expect(derived(text, 'a_to_A_ratio').value).toBe(1);
+    expect(derived(text, 'a_to_A_ratio').notes.join(' ')).toMatch(/full alveolar gas equation/);
     expect(derived(text, 'pf_ratio').value).toBeCloseTo(600, 6);
     expect(derivation(text).interpretations.map((i) => i.text).join(' ')).not.toMatch(/PN401/);
   });

@@ -198,13 +198,14 @@ export const aToARatio = defineDerived({
     if (isAboveAlveolar(pa.value, pA.value, allowanceAt(c))) return ABOVE_ALVEOLAR;
     // Within rounding above the alveolar PO2 the gradient shows as 0, and the ratio says the same:
     // 1, not the 1.06 that no blood can reach (a gradient of 0 beside a ratio above 1 would contradict it).
-    if (pa.value > pA.value && pA.value > 0) return c.value(1, [pa, pA], WITHIN_ROUNDING_RATIO);
+    if (pa.value > pA.value && pA.value > 0) return c.value(1, [pa, pA], pa.value > pA.value + ALVEOLAR_ROUNDING_MMHG ? BELOW_FULL_FORM_RATIO : WITHIN_ROUNDING_RATIO);
     return c.value(arterialAlveolarRatio(pa.value, pA.value), [pa, pA]);
   },
 });
 
 /** The a/A ratio of a PaO2 within rounding above the alveolar PO2: one object for every timepoint. */
 const WITHIN_ROUNDING_RATIO: ValueExtras = { notes: ['PaO2 within rounding of the alveolar PO2: ratio shown as 1'] };
+const BELOW_FULL_FORM_RATIO: ValueExtras = { notes: ['PaO2 above the alveolar PO2 of the simplified equation but not above that of the full alveolar gas equation, which reads higher on a high FiO2: ratio shown as 1'] };
 
 export const pfRatioDef = defineDerived({
   id: 'pf_ratio',
