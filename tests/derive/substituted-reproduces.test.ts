@@ -43,8 +43,11 @@ function evaluate(left: string, right: string): { readonly left: number; readonl
   return { left: value, right, decimals };
 }
 
-/** A value set rather than computed, which its notes say (a PaO2 within rounding of the alveolar PO2: A–a shown as 0, a/A as 1). */
-const SET_NOT_COMPUTED = /within rounding of the alveolar PO2: (gradient|ratio) shown as/;
+/**
+ * A value set rather than computed, which its notes say (a PaO2 within rounding of the alveolar PO2,
+ * or above the simplified equation's alveolar PO2 but not the full one's: A–a shown as 0, a/A as 1).
+ */
+const SET_NOT_COMPUTED = /(within rounding of the alveolar PO2|not above that of the full alveolar gas equation, which reads higher on a high FiO2): (gradient|ratio) shown as/;
 
 /**
  * `value` to `d` decimals as on paper: first to 9 decimals past the last (so 19.949999999999996,
@@ -128,6 +131,11 @@ describe('the formula with its numbers gives the value shown', () => {
           }
         });
       },
-    ), { numRuns: 150 });
+    ), {
+      numRuns: 150,
+      // A PaO2 of 97 mmHg above the simplified alveolar PO2 (92) but not above the full one (97): the
+      // gradient is set to 0, not computed, and its note says so (seed 1279598415).
+      examples: [[false, '4.50', '120.0', '7.10', '8.6', '12.87', '15.0', '0.31', 5, '18', '300', '60', '1980', '8.0']],
+    });
   });
 });

@@ -36,6 +36,14 @@ describe('alveolar gas equation', () => {
     expect(onAir).toBeCloseTo(2.1, 1);
     expect(onOxygen).toBeCloseTo(10, 6);
   });
+  it('the excess of the full form over the simplified is PaCO2 × FiO2 × (1/R − 1): the same 2.1 and 10 mmHg, 25 mmHg with PaCO2 100 on FiO2 1.0, none at R 1 (shared/REFERENCES.md; Riley & Cournand 1949, from memory)', () => {
+    expect(gas.fullFormExcessMmhg(0.21, 40)).toBeCloseTo((alveolarPo2Full(0.21, seaLevelPio2Air, 40) ?? 0) - (alveolarPo2Simplified(seaLevelPio2Air, 40) ?? 0), 9);
+    expect(gas.fullFormExcessMmhg(1, 40)).toBeCloseTo(10, 9);
+    expect(gas.fullFormExcessMmhg(1, 100)).toBeCloseTo(25, 9);
+    expect(gas.fullFormExcessMmhg(0.5, 40, 1)).toBe(0);
+    expect(gas.fullFormExcessMmhg(0.5, 40, 1.2)).toBe(0);
+    expect(gas.fullFormExcessMmhg(0, 40)).toBeNull();
+  });
   it('Everest summit: PB 253, PACO2 7.5, R 0.85 → PAO2 ≈ 35 mmHg (West et al., J Appl Physiol 1983;55:678–687; from memory)', () => {
     const pio2 = inspiredPo2Humidified(0.2093, 253) ?? 0;
     expect(Math.abs((alveolarPo2Full(0.2093, pio2, 7.5, 0.85) ?? 0) - 35)).toBeLessThanOrEqual(1.5);
@@ -199,6 +207,7 @@ describe('null safety (fast-check)', () => {
     alveolarPo2SimplifiedSigned: totality(fc.tuple(d, d, d), gas.alveolarPo2SimplifiedSigned),
     alveolarPo2FullSigned: totality(fc.tuple(d, d, d, d), gas.alveolarPo2FullSigned),
     aaGradient: totality(fc.tuple(d, d), gas.aaGradient),
+    fullFormExcessMmhg: totality(fc.tuple(d, d, d), gas.fullFormExcessMmhg),
     aaGradientUpperNormal: totality(fc.tuple(d, rules), gas.aaGradientUpperNormal),
     arterialAlveolarRatio: totality(fc.tuple(d, d), gas.arterialAlveolarRatio),
     arterialEndTidalCo2Difference: totality(fc.tuple(d, d), gas.arterialEndTidalCo2Difference),

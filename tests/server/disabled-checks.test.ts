@@ -1,5 +1,5 @@
 // The editor setting pneumark.disabledChecks over a real stdio connection: a name that is no
-// check's code or alias (a typo such as PN320 or unusal-value) switches nothing off, so the server
+// check's code or alias (a typo such as PN220 or unusal-value) switches nothing off, so the server
 // says so, once per distinct list, with the check it likely meant; valid names bring no message.
 import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
@@ -8,7 +8,7 @@ import { startClient, type LspClient, type ServerMessage } from './lsp-client';
 
 let client: LspClient;
 beforeAll(async () => {
-  client = await startClient({ disabledChecks: ['PN320', 'unusal-value', 'decimal-comma', 'no-such-thing'] });
+  client = await startClient({ disabledChecks: ['PN220', 'unusal-value', 'decimal-comma', 'no-such-thing'] });
 });
 afterAll(async () => {
   await client?.close();
@@ -28,7 +28,7 @@ describe('unknown names in pneumark.disabledChecks', () => {
       method: 'window/logMessage',
       type: 2,
       message: 'pneumark: pneumark.disabledChecks: '
-        + '"PN320" is not the code or alias of a check (see docs/checks.md), so it switches nothing off. Did you mean PN302 (unusual-value) or PN310 (flow-on-room-air)? '
+        + '"PN220" is not the code or alias of a check (see docs/checks.md), so it switches nothing off. Did you mean PN202 (unknown-unit) or PN320 (pressure-unlike-altitude)? '
         + '"unusal-value" is not the code or alias of a check (see docs/checks.md), so it switches nothing off. Did you mean unusual-value (PN302)? '
         + '"no-such-thing" is not the code or alias of a check (see docs/checks.md), so it switches nothing off.',
     });

@@ -57,9 +57,9 @@ describe('settings from a Lua client (Neovim)', () => {
 describe('names in disabledChecks that are no check', () => {
   it('are found case-insensitively, each once, with the check they likely meant', () => {
     expect(unknownCheckNames(['PN302', 'pn302', 'Unusual-Value', 'decimal-comma'])).toEqual([]);
-    expect(unknownCheckNames(['PN320', 'pn320', 'unusal-value', 'PN 101', 'pn-410', '302', 'PN999999', 'PN30', 'zz'])).toEqual([
+    expect(unknownCheckNames(['PN220', 'pn220', 'unusal-value', 'PN 101', 'pn-410', '302', 'PN999999', 'PN30', 'zz'])).toEqual([
       // One edit from two codes (a swap of neighbours counts as one): both are named.
-      { name: 'PN320', likely: ['PN302 (unusual-value)', 'PN310 (flow-on-room-air)'] },
+      { name: 'PN220', likely: ['PN202 (unknown-unit)', 'PN320 (pressure-unlike-altitude)'] },
       { name: 'unusal-value', likely: ['unusual-value (PN302)'] },
       // The same code written with a space or a hyphen, or without its PN.
       { name: 'PN 101', likely: ['PN101 (unknown-section)'] },

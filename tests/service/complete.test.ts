@@ -178,11 +178,12 @@ describe('units', () => {
     expect(first('@ 08:00\nabg po2 9.5 |', { gasUnit: 'kPa' })).toEqual(kpaFirst);
     expect(first('units gas kPa\nabg 7.31/5.9/8.1/28 |').map(([l]) => l)).toEqual(['kPa', 'mmHg']);
     // A header line follows the header's gas unit.
-    expect(first('units gas kPa\nplace pb 90 |').map(([l]) => l)).toEqual(['kPa', 'mmHg']);
+    // A barometric pressure also takes hPa, as weather stations give it: offered after the gas units.
+    expect(first('units gas kPa\nplace pb 90 |').map(([l]) => l)).toEqual(['kPa', 'mmHg', 'hPa']);
     expect(first('units gas kPa\n@ 08:00\nunits gas mmHg\nabg po2 71 |').map(([l]) => l)).toEqual(['mmHg', 'kPa']);
     // As the note is read: a `units gas` line counts from its line on, also within a timepoint.
     expect(first('@ 08:00\nabg po2 80 |\nunits gas kPa\nabg pco2 5.3').map(([l]) => l)).toEqual(['mmHg', 'kPa']);
-    expect(first('place pb 90 |\nunits gas kPa\n@ 08:00').map(([l]) => l)).toEqual(['mmHg', 'kPa']);
+    expect(first('place pb 90 |\nunits gas kPa\n@ 08:00').map(([l]) => l)).toEqual(['mmHg', 'kPa', 'hPa']);
   });
 
   it('offers a set rate in Hz first where the mode in force is HFOV, whose rate is a frequency (a bare one reads in /min, PN302)', () => {

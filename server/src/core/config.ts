@@ -120,7 +120,7 @@ export interface UnknownCheckName {
  * order written), with the checks they likely meant: the same code written with a space, hyphen
  * or without its `PN` (`PN 302`, `pn-302`, `302`), else the codes and aliases at the fewest edits
  * (one or two; one for names of three letters or fewer; a swap of two neighbours counts as one:
- * `PN320` is one edit from both PN302 and PN310), when there are at most three (`PN30` is one
+ * `PN220` is one edit from both PN202 and PN320), when there are at most three (`PN30` is one
  * edit from nine codes, and names none).
  */
 export function unknownCheckNames(names: readonly string[]): UnknownCheckName[] {
@@ -157,8 +157,8 @@ function likelyChecks(lower: string): string[] {
 
 /**
  * What a name in `disabledChecks` that is no check's code or alias does (nothing), and what it
- * likely meant: `"PN320" is not the code or alias of a check (see docs/checks.md), so it switches
- * nothing off. Did you mean PN302 (unusual-value) or PN310 (flow-on-room-air)?`
+ * likely meant: `"PN220" is not the code or alias of a check (see docs/checks.md), so it switches
+ * nothing off. Did you mean PN202 (unknown-unit) or PN320 (pressure-unlike-altitude)?`
  */
 export function unknownCheckSentence(unknown: UnknownCheckName): string {
   const said = `${JSON.stringify(unknown.name)} is not the code or alias of a check (see docs/checks.md), so it switches nothing off.`;

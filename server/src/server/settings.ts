@@ -42,7 +42,7 @@ function beyondSafeInteger(issue: z.core.$ZodIssue): boolean {
  * is validated on its own: an invalid one is dropped (and named in `problem`), the others apply.
  * Names in `disabledChecks` that are no check's code or alias are kept (they switch nothing off,
  * as in `pneumark.config.json`) and named in `unknownChecks`, with the check each likely meant:
- * `PN320` or `unusal-value` would otherwise leave a check on that its author believes off.
+ * `PN220` or `unusal-value` would otherwise leave a check on that its author believes off.
  * An empty list stands for an empty object (the section or `hints`): Lua has one kind of table,
  * and Neovim sends an empty one as `[]`.
  */

@@ -1,6 +1,6 @@
 /** A PaO2 above the alveolar PO2 that the stated FiO2 and pressure allow is impossible. */
 import { describeInputOrigin } from '../derive/context';
-import { ALVEOLAR_ROUNDING_MMHG, isAboveAlveolar } from '../derive/gas-exchange';
+import { ALVEOLAR_ROUNDING_MMHG, isAboveAlveolar, simplifiedFormAllowance } from '../derive/gas-exchange';
 import { derivedValueOf } from '../derive/registry';
 import { SOURCES } from '../physiology';
 import { gasPressureText, showsKpa, statedGasText } from '../present';
@@ -15,7 +15,7 @@ export const pao2AboveAlveolar = defineCheck({
   severity: 'error',
   tags: ['physiology'],
   doc: {
-    fires: `The arterial PO2 is more than ${ALVEOLAR_ROUNDING_MMHG} mmHg above the alveolar PO2 that the FiO2, barometric pressure and PaCO2 in force allow. Blood cannot hold a higher PO2 than the gas it meets, so something in the note is wrong. Nothing is computed from that PaO2 (A–a gradient, a/A ratio, P/F, oxygenation index, CaO2 and what follows from them): hints, hovers, \`show\` and exports say they are withheld, or leave their cells empty. No oxygenation or respiratory failure reading is given from it either.`,
+    fires: `The arterial PO2 is more than ${ALVEOLAR_ROUNDING_MMHG} mmHg above the alveolar PO2 that the FiO2, barometric pressure and PaCO2 in force allow, by the full alveolar gas equation (where the simplified one is shown, the full one is higher on oxygen: by 10 mmHg on FiO2 1.0 with PaCO2 40, and the PaO2 is judged against it). Blood cannot hold a higher PO2 than the gas it meets, so something in the note is wrong. Nothing is computed from that PaO2 (A–a gradient, a/A ratio, P/F, oxygenation index, CaO2 and what follows from them): hints, hovers, \`show\` and exports say they are withheld, or leave their cells empty. No oxygenation or respiratory failure reading is given from it either.`,
     example: '@ 08:00\noxygen room air\nabg ph 7.40, pco2 40, po2 160',
     fix: 'Check the FiO2 in force (and where it came from), the unit of the PaO2 (kPa written as mmHg?), and an air bubble in the syringe, which pulls the sample\'s PO2 towards that of room air.',
   },
@@ -27,8 +27,10 @@ export const pao2AboveAlveolar = defineCheck({
     const alveolar = derivedValueOf(ctx.derivation, 'pao2_alveolar');
     const pao2 = tp.values.get('pao2');
     if (!alveolar || !pao2 || pao2.origin.kind !== 'here' || !pao2.stated.usable || pao2.stated.value === null) return;
-    if (!isAboveAlveolar(pao2.stated.value, alveolar.value)) return;
     const fio2 = derivedValueOf(ctx.derivation, 'pio2')?.inputs.find((t) => t.name === 'FiO2');
+    // Judged against the full alveolar gas equation's PO2, the higher of the two forms on oxygen.
+    const allowance = simplifiedFormAllowance(ctx.settings, fio2?.value ?? null, tp.values.numberOf('paco2'));
+    if (!isAboveAlveolar(pao2.stated.value, alveolar.value, allowance)) return;
     const related = fio2 && fio2.origin.kind !== 'default' && fio2.origin.kind !== 'derived'
       ? [{ range: toRange(fio2.origin.line, fio2.origin.span), message: `FiO2 ${formatNumber(fio2.value, 2)} in force (${describeInputOrigin(fio2.origin)})` }]
       : [];
@@ -39,7 +41,10 @@ export const pao2AboveAlveolar = defineCheck({
       message: alveolar.value < 0
         // The alveolar gas equation gives less than nothing: the inputs contradict each other whatever the PaO2.
         ? `No PaO2 is possible here: with ${allowed}, the barometric pressure and the PaCO2 in force, the alveolar PO2 comes out at ${gasPressureText(alveolar.value, 0, kpa)}. Check the FiO2, the altitude or pressure, and the units of PaCO2 and PaO2.`
-        : `PaO2 ${statedGasText(pao2.stated, kpa)} is above the alveolar PO2 of ${gasPressureText(alveolar.value, 0, kpa)} that ${allowed} allows here: check the FiO2, the unit, and whether the sample had an air bubble.`,
+        // Where the full form's alveolar PO2, the one judged against, is further above the simplified one shown than rounding, both are named.
+        : allowance >= ALVEOLAR_ROUNDING_MMHG
+          ? `PaO2 ${statedGasText(pao2.stated, kpa)} is above the alveolar PO2 that ${allowed} allows here (${gasPressureText(alveolar.value, 0, kpa)} by the simplified alveolar gas equation, ${gasPressureText(alveolar.value + allowance, 0, kpa)} by the full one): check the FiO2, the unit, and whether the sample had an air bubble.`
+          : `PaO2 ${statedGasText(pao2.stated, kpa)} is above the alveolar PO2 of ${gasPressureText(alveolar.value, 0, kpa)} that ${allowed} allows here: check the FiO2, the unit, and whether the sample had an air bubble.`,
       related,
     });
   },

@@ -23,6 +23,7 @@ import { peakNearAbsolutePinsp } from './insp-pressure';
 import { fio2OnRoomAirCheck, flowOnRoomAirCheck } from './room-air-flow';
 import { pressureWithoutSupport } from './pressure-without-support';
 import { bareHbBesideMmolCheck } from './hb-units';
+import { placePressureUnlikeAltitude } from './place-pressure';
 import { therapyOverlap } from './therapy-overlap';
 import { unusualBlank } from './unusual-blank';
 import { fio2OutOfRange, impossibleValue, saturationAbove100, unusualValue } from './value-bounds';
@@ -60,6 +61,7 @@ export const CHECKS: readonly CheckDef[] = validateCheckList([
   peakNearAbsolutePinsp,
   pressureWithoutSupport,
   bareHbBesideMmolCheck,
+  placePressureUnlikeAltitude,
   pao2AboveAlveolar,
   gasInconsistent,
   tidalVolumeHigh,

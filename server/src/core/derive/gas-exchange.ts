@@ -6,6 +6,7 @@ import {
   aaGradientUpperNormal,
   alveolarPo2FullSigned,
   alveolarPo2SimplifiedSigned,
+  fullFormExcessMmhg,
   arterialAlveolarRatio,
   arterialEndTidalCo2Difference,
   oxygenSaturationIndex,
@@ -18,13 +19,35 @@ import {
 import { defineDerived, withDecimals, type DeriveContext, type Outcome, type Term, type ValueExtras } from './context';
 import { decimalsAgainst } from '../util/format';
 import { SEA_LEVEL_MMHG } from './atmosphere';
+import type { Settings } from '../settings';
 
 /** PaO2 above alveolar PO2 by more than this (mmHg) is impossible rather than rounding. */
 export const ALVEOLAR_ROUNDING_MMHG = 5;
 
-/** Whether a PaO2 is above the alveolar PO2 by more than rounding: impossible (PN401), so nothing is read from it. */
-export function isAboveAlveolar(pao2Mmhg: number, alveolarMmhg: number): boolean {
-  return pao2Mmhg > alveolarMmhg + ALVEOLAR_ROUNDING_MMHG;
+/**
+ * Whether a PaO2 is above the alveolar PO2 by more than rounding: impossible (PN401), so nothing is
+ * read from it. `allowanceMmhg` (`simplifiedFormAllowance`) lifts the alveolar PO2 shown to what the
+ * full alveolar gas equation gives, where the one shown is the simplified form's.
+ */
+export function isAboveAlveolar(pao2Mmhg: number, alveolarMmhg: number, allowanceMmhg = 0): boolean {
+  return pao2Mmhg > alveolarMmhg + allowanceMmhg + ALVEOLAR_ROUNDING_MMHG;
+}
+
+/**
+ * How much higher (mmHg) the full alveolar gas equation puts the alveolar PO2 than the one shown:
+ * 0 under the full form (setting), else PaCO2 × FiO2 × (1/R − 1). The simplified form reads low on
+ * a high FiO2 (by 25 mmHg on FiO2 1.0 with PaCO2 100), so a PaO2 is called impossible only above
+ * the full form's alveolar PO2, the higher of the two. Source: `alveolar-gas-equation`.
+ */
+export function simplifiedFormAllowance(settings: Settings, fio2: number | null, paco2Mmhg: number | null): number {
+  if (settings.alveolarEquation === 'full' || fio2 === null || paco2Mmhg === null) return 0;
+  return fullFormExcessMmhg(fio2, paco2Mmhg, settings.respiratoryQuotient) ?? 0;
+}
+
+/** `simplifiedFormAllowance` at a timepoint being derived. */
+export function allowanceAt(c: DeriveContext): number {
+  if (c.settings.alveolarEquation === 'full') return 0;
+  return simplifiedFormAllowance(c.settings, c.fio2()?.value ?? null, c.number('paco2'));
 }
 
 /** A value read from a PaO2 above the alveolar PO2 (PN401) is withheld, as the A–a gradient and the readings are. */
@@ -38,7 +61,7 @@ const ABOVE_ALVEOLAR: Outcome = { kind: 'na', reason: 'PaO2 is above the alveola
  */
 export function pao2Withheld(c: DeriveContext, pa: Term): Outcome | null {
   const pA = c.derivedValue('pao2_alveolar');
-  return pA !== null && isAboveAlveolar(pa.value, pA.value) ? ABOVE_ALVEOLAR : null;
+  return pA !== null && isAboveAlveolar(pa.value, pA.value, allowanceAt(c)) ? ABOVE_ALVEOLAR : null;
 }
 
 export const pao2Alveolar = defineDerived({
@@ -113,13 +136,17 @@ export const aaGradientDef = defineDerived({
     if (pA.value < 0) return { kind: 'na', reason: `the alveolar PO2 comes out negative (${Math.round(pA.value)} mmHg): this FiO2, pressure and PaCO2 cannot go together (see PN401)`, withheldBy: 'PN401' };
     const g = aaGradient(pA.value, pa.value);
     if (g === null) return c.value(null, []);
-    if (g < -ALVEOLAR_ROUNDING_MMHG) return { kind: 'na', reason: `PaO2 ${Math.round(pa.value)} mmHg is above the alveolar PO2 ${Math.round(pA.value)} mmHg that the stated FiO2 and pressure allow (see PN401)`, withheldBy: 'PN401' };
-    if (g < 0) return c.value(0, [pA, pa], { notes: ['PaO2 within rounding of the alveolar PO2: gradient shown as 0'] });
+    if (isAboveAlveolar(pa.value, pA.value, allowanceAt(c))) return { kind: 'na', reason: `PaO2 ${Math.round(pa.value)} mmHg is above the alveolar PO2 ${Math.round(pA.value)} mmHg that the stated FiO2 and pressure allow (see PN401)`, withheldBy: 'PN401' };
+    if (g < 0) return c.value(0, [pA, pa], g < -ALVEOLAR_ROUNDING_MMHG ? BELOW_FULL_FORM : WITHIN_ROUNDING_GRADIENT);
     // Shown beside its upper normal for age: with the decimals that keep it on its side of it.
     const upper = upperNormalFor(c);
     return c.value(g, [pA, pa], withDecimals(upper === null ? undefined : decimalsAgainst(g, 0, upper)));
   },
 });
+
+// The notes of a gradient shown as 0: one object each for every timepoint.
+const WITHIN_ROUNDING_GRADIENT: ValueExtras = { notes: ['PaO2 within rounding of the alveolar PO2: gradient shown as 0'] };
+const BELOW_FULL_FORM: ValueExtras = { notes: ['PaO2 above the alveolar PO2 of the simplified equation but not above that of the full alveolar gas equation, which reads higher on a high FiO2: gradient shown as 0'] };
 
 const AGE_RULE_TEXT = {
   'age-over-4-plus-4': '{age} ÷ 4 + 4',
@@ -168,16 +195,17 @@ export const aToARatio = defineDerived({
     const pa = c.field('pao2', 'PaO2');
     const pA = c.derived('pao2_alveolar', 'PAO2');
     if (!pa || !pA) return c.missing([pa, 'po2'], [pA, c.lacking('pao2_alveolar')]);
-    if (isAboveAlveolar(pa.value, pA.value)) return ABOVE_ALVEOLAR;
+    if (isAboveAlveolar(pa.value, pA.value, allowanceAt(c))) return ABOVE_ALVEOLAR;
     // Within rounding above the alveolar PO2 the gradient shows as 0, and the ratio says the same:
     // 1, not the 1.06 that no blood can reach (a gradient of 0 beside a ratio above 1 would contradict it).
-    if (pa.value > pA.value && pA.value > 0) return c.value(1, [pa, pA], WITHIN_ROUNDING_RATIO);
+    if (pa.value > pA.value && pA.value > 0) return c.value(1, [pa, pA], pa.value > pA.value + ALVEOLAR_ROUNDING_MMHG ? BELOW_FULL_FORM_RATIO : WITHIN_ROUNDING_RATIO);
     return c.value(arterialAlveolarRatio(pa.value, pA.value), [pa, pA]);
   },
 });
 
 /** The a/A ratio of a PaO2 within rounding above the alveolar PO2: one object for every timepoint. */
 const WITHIN_ROUNDING_RATIO: ValueExtras = { notes: ['PaO2 within rounding of the alveolar PO2: ratio shown as 1'] };
+const BELOW_FULL_FORM_RATIO: ValueExtras = { notes: ['PaO2 above the alveolar PO2 of the simplified equation but not above that of the full alveolar gas equation, which reads higher on a high FiO2: ratio shown as 1'] };
 
 export const pfRatioDef = defineDerived({
   id: 'pf_ratio',

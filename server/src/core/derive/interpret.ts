@@ -12,7 +12,7 @@ import { decimalsAgainst, formatAgainst, formatNumber, formatShort, rangeAgainst
 import { KPA_DECIMALS, kpaFromMmhg, kpaNumber, kpaResolutionMmhg, showsKpa, statedKpaNumber, statedNumber } from '../present';
 import type { StatedValue } from '../analysis/model';
 import { classification } from './acid-base';
-import { isAboveAlveolar } from './gas-exchange';
+import { allowanceAt, isAboveAlveolar } from './gas-exchange';
 import { SEA_LEVEL_MMHG } from './atmosphere';
 import type { DeriveContext, Term } from './context';
 import type { DerivedValue, Interpretation, InterpretationTopic } from './model';
@@ -254,7 +254,7 @@ class GasFacts {
     // One of the FiO2, pressure, PaCO2 and PaO2 is wrong, so nothing is read from the PaO2 until the
     // note is mended (as PN402 holds the acid–base reading).
     const alveolar = pao2 ? c.derivedValue('pao2_alveolar') : null;
-    this.impossible = pao2 !== null && alveolar !== null && isAboveAlveolar(pao2.value, alveolar.value);
+    this.impossible = pao2 !== null && alveolar !== null && isAboveAlveolar(pao2.value, alveolar.value, allowanceAt(c));
   }
 }
 

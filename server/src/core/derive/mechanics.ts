@@ -16,8 +16,8 @@ import {
   vtPerKgPbw,
 } from '../physiology';
 import type { NoninvasiveSupport } from '../analysis/noninvasive-support';
-import { defineDerived, withDecimals, type Term, type ValueExtras } from './context';
-import { decimalsAgainst } from '../util/format';
+import { defineDerived, withDecimals, type DeriveContext, type Outcome, type Term, type ValueExtras } from './context';
+import { decimalsAgainst, formatShort } from '../util/format';
 
 export const minuteVentilation = defineDerived({
   id: 'minute_ventilation',
@@ -42,6 +42,20 @@ export const minuteVentilation = defineDerived({
   },
 });
 
+/** Age (years) from which the ARDS Network's predicted body weight is worked out: the trial's adults (ARDS Network 2000, from memory). */
+export const PBW_ADULT_FROM_YEARS = 18;
+const PBW_FOR_ADULTS = `the ARDS Network equation is for adults (${PBW_ADULT_FROM_YEARS} years or more)`;
+
+/**
+ * What a value computed from the predicted body weight gives where that weight is not worked out
+ * (a child, a height it gives no weight for): the same reason, rather than asking for a PBW, which
+ * cannot be written. Null where the weight is there or merely lacks its inputs.
+ */
+function withoutPbw(c: DeriveContext): Outcome | null {
+  const r = c.evaluate('predicted_body_weight');
+  return r !== null && 'reason' in r && !('value' in r) ? { kind: 'na', reason: `no predicted body weight: ${r.reason}` } : null;
+}
+
 export const pbw = defineDerived({
   id: 'predicted_body_weight',
   label: 'Predicted body weight',
@@ -56,10 +70,16 @@ export const pbw = defineDerived({
     const height = c.field('height', 'height');
     const sex = c.word('sex');
     if (!height || !sex) return c.missing([height, 'height (patient line)'], [sex, 'sex (patient line)']);
+    // The equation was made for adults: a child's weight is not read from it (nor a tidal volume per kg).
+    const age = c.number('age');
+    if (age !== null && age < PBW_ADULT_FROM_YEARS) return { kind: 'na', reason: `${PBW_FOR_ADULTS}: not worked out at age ${formatShort(age)} y` };
     const male = sex.word === 'male';
+    const weight = predictedBodyWeightKg(height.value, male ? 'male' : 'female');
+    // Far below 152.4 cm the line reaches 0 kg (about 102 cm for a woman): no weight, rather than "add PBW".
+    if (weight === null) return { kind: 'na', reason: `the ARDS Network equation gives no weight for a height of ${formatShort(height.value, 0)} cm` };
     const base = { name: 'base', value: male ? 50 : 45.5, unit: 'kg', decimals: 1, origin: sex.input.origin, note: male ? 'male' : 'female' };
-    const notes = height.value < 152.4 ? ['below 152.4 cm the equation was not validated (short adults, children)'] : [];
-    return c.value(predictedBodyWeightKg(height.value, male ? 'male' : 'female'), [base, height], { notes });
+    const notes = height.value < 152.4 ? ['below 152.4 cm the equation was not validated (short adults)'] : [];
+    return c.value(weight, [base, height], { notes });
   },
 });
 
@@ -76,6 +96,10 @@ export const vtPerKg = defineDerived({
   compute(c) {
     const vt = c.field('vt', 'VT');
     const p = c.derived('predicted_body_weight', 'PBW');
+    if (!p) {
+      const none = withoutPbw(c);
+      if (none) return none;
+    }
     if (!vt || !p) return c.missing([vt, 'vt'], [p, c.lacking('predicted_body_weight')]);
     const perKg = vtPerKgPbw(vt.value, p.value);
     // Shown beside the 8 mL/kg top of the lung-protective range (PN403): 8.04 as 8.04, not 8.0.
@@ -297,6 +321,10 @@ export const ventilatoryRatioDef = defineDerived({
     if (!ve) {
       const withheld = c.withheldFrom('minute_ventilation');
       if (withheld) return withheld;
+    }
+    if (!p) {
+      const none = withoutPbw(c);
+      if (none) return none;
     }
     if (!ve || !paco2 || !p) return c.missing([ve, c.lacking('minute_ventilation')], [paco2, 'pco2'], [p, c.lacking('predicted_body_weight')]);
     return c.value(ventilatoryRatio(ve.value * 1000, paco2.value, p.value), [ve, paco2, p]);

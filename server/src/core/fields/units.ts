@@ -4,7 +4,7 @@
  * conversion happens only at the edges (parsing and display).
  */
 
-import { GLUCOSE_MG_PER_DL_PER_MMOL_L, HB_G_PER_DL_PER_MMOL_L, MMHG_PER_KPA, PA_PER_CMH2O } from '../physiology/units';
+import { GLUCOSE_MG_PER_DL_PER_MMOL_L, HB_G_PER_DL_PER_MMOL_L, MMHG_PER_KPA, PA_PER_CMH2O, PA_PER_MMHG } from '../physiology/units';
 import { squeezeBlanks } from '../syntax/blanks';
 
 export type Dimension =
@@ -42,6 +42,7 @@ export const HB_MMOL_PER_L = 'mmolHb/L';
 /** Definitions of the units (exact where the unit is defined exactly). */
 /** Exact conversions from the definitions of the units (physiology/units.ts holds the constants). */
 const CMH2O_PER_MBAR = 100 / PA_PER_CMH2O; // 1.019716
+const MMHG_PER_HPA = 100 / PA_PER_MMHG; // 0.750062
 
 const linear = (factor: number) => ({
   toBase: (v: number) => v * factor,
@@ -73,6 +74,8 @@ function unit(
 export const UNITS: readonly UnitDef[] = [
   unit('mmHg', 'gas-pressure', 'mm[Hg]', linear(1), ['mm Hg', 'mmhg', 'torr']),
   unit('kPa', 'gas-pressure', 'kPa', linear(MMHG_PER_KPA), ['kpa']),
+  // Hectopascals (= millibars), as weather stations and altimeters give the barometric pressure (1 hPa = 100 Pa).
+  unit('hPa', 'gas-pressure', 'hPa', linear(MMHG_PER_HPA), ['hpa', 'mbar']),
   unit('cmH2O', 'airway-pressure', 'cm[H2O]', linear(1), ['cmh2o', 'cm H2O', 'cmwater']),
   unit('mbar', 'airway-pressure', 'mbar', linear(CMH2O_PER_MBAR), ['hPa']),
   unit('fraction', 'fraction', '1', linear(1), []),

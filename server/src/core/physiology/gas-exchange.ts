@@ -114,6 +114,17 @@ export function alveolarPo2FullSigned(fio2: number, pio2Mmhg: number, paco2Mmhg:
 }
 
 /**
+ * How far (mmHg) the full alveolar gas equation puts the alveolar PO2 above the simplified one with
+ * the same inputs: full − simplified = PaCO2 × FiO2 × (1/R − 1), about 2 mmHg on air and 10 mmHg on
+ * FiO2 1.0 with PaCO2 40 and R 0.8; 0 where R ≥ 1 (the simplified form is then the higher).
+ * `null` unless 0 < FiO2 ≤ 1, PaCO2 ≥ 0, R > 0. Source: `alveolar-gas-equation`.
+ */
+export function fullFormExcessMmhg(fio2: number, paco2Mmhg: number, rq: number = DEFAULT_RESPIRATORY_QUOTIENT): number | null {
+  if (!isFio2Fraction(fio2) || !allFinite(paco2Mmhg) || paco2Mmhg < 0 || !validRq(rq)) return null;
+  return finiteOrNull(Math.max(0, paco2Mmhg * fio2 * (1 / rq - 1)));
+}
+
+/**
  * Alveolar–arterial PO2 difference (mmHg): PAO2 − PaO2. May be negative (a PaO2 above PAO2 by
  * more than rounding is impossible at the stated FiO2 and pressure; callers flag it).
  * `null` unless both pressures are ≥ 0. Source: `alveolar-gas-equation`.
