@@ -396,6 +396,28 @@ describe('convertNoteUnits', () => {
 
 /** Canonical tolerance of a value written back with the usual decimals of each unit. */
 function tolerance(s: StatedValue): number {
+  return Math.max(unitRounding(s), writtenPrecision(s));
+}
+
+/**
+ * Half a step of the last digit written, in the value's own unit: a conversion writes a number that
+ * converts back to the number as written (unit-conversion.ts, `numberIn`), and may lean within that
+ * step to keep a usual value usual (`etco2 1 kPa`, 0.5–1.5 kPa as written, is 10 mmHg, not 8).
+ */
+function writtenPrecision(s: StatedValue): number {
+  const text = s.item.value?.kind === 'number' ? s.item.value.text : null;
+  const from = s.readUnit ? unitById(s.readUnit) : undefined;
+  const to = s.unit ? unitById(s.unit) : undefined;
+  if (text === null || !from || !to || s.value === null) return 0;
+  const point = text.search(/[.,]/);
+  const half = 0.5 * 10 ** -(point < 0 ? 0 : text.length - point - 1);
+  const written = Number(text.replace(',', '.').replace('\u2212', '-'));
+  const low = convert(written - half, from, to);
+  const high = convert(written + half, from, to);
+  return low === null || high === null ? 0 : Math.abs(high - low) / 2 + 1e-6;
+}
+
+function unitRounding(s: StatedValue): number {
   switch (s.unit) {
     case 'mmHg': return 0.5 + 1e-6; // kPa to 1 decimal is ±0.375 mmHg; mmHg to 0 decimals ±0.5
     case 'fraction': return 0.005 + 1e-9;
@@ -497,7 +519,7 @@ describe('action properties', () => {
           }
         }
       }
-    }), { numRuns: ACTION_RUNS, examples: [['labs hb +3 #', 0]] });
+    }), { numRuns: ACTION_RUNS, examples: [['labs hb +3 #', 0], ['vitals etco2 1 kPa #', 0]] });
   }, 60_000);
 
   /** Decimals a value is usually written with in each unit (more than these cannot always come back from a coarser unit). */
@@ -606,7 +628,7 @@ describe('action properties', () => {
         expect(Number(o.item.value?.text.replace(',', '.')).toFixed(decimals), `${s.fieldId} ${line(text, s.line)} → ${there} → ${back}: ${line(returned, o.line)}`).toBe(Number(written).toFixed(decimals));
         expect(o.readUnit).toBe(back);
       });
-    }), { numRuns: CONVERSION_RUNS });
+    }), { numRuns: CONVERSION_RUNS, examples: [['vitals etco2 1 kPa #', ['kPa', 'mmHg']]] });
   }, Math.max(60_000, CONVERSION_RUNS * 100));
 });
 
