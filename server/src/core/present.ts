@@ -69,8 +69,14 @@ function writtenPrecisionIn(s: StatedValue, target: UnitDef): number {
   if (read.id === 'Hz') return roundTripDecimals(Number(text.replace(',', '.')), written, factor);
   const shift = -Math.log10(factor);
   const whole = Math.round(shift);
-  return Math.abs(shift - whole) < 1e-9 ? Math.max(0, written + whole) : 0;
+  if (Math.abs(shift - whole) < 1e-9) return Math.max(0, written + whole);
+  // Units a few percent apart (mbar and cmH2O): one decimal more than written, or the value would
+  // show as the same number in both (25 mbar as 25 cmH2O, not 25.5) and sums of them look wrong.
+  return Math.abs(shift) < NEAR_UNITS_LOG10 ? written + 1 : 0;
 }
+
+/** Units whose ratio is within this power of ten of 1 (about ±12 %) are shown with a decimal more. */
+const NEAR_UNITS_LOG10 = 0.05;
 
 /** The fewest decimals (up to those written) with which `written × factor` converts back to `written` at its decimals. */
 function roundTripDecimals(written: number, decimals: number, factor: number): number {
