@@ -20,9 +20,15 @@ function readOnlyMessage(document: vscode.TextDocument): string {
   return `${document.isUntitled ? 'This note' : inMessage(vscode.workspace.asRelativePath(document.uri))} could not be changed: it is read-only.`;
 }
 
-export async function convertNoteUnits(send: Requester | null): Promise<void> {
+/**
+ * `server` gives the way to the server, or null when it is not running; it may first wait for a
+ * start under way (the note that woke the extension up, a restart on request), so that a command
+ * run at once is not told the server is not running.
+ */
+export async function convertNoteUnits(server: Requester | null | Promise<Requester | null>): Promise<void> {
   const editor = activeNote('to convert its gas units');
   if (!editor) return;
+  const send = await server;
   if (!send) {
     void vscode.window.showWarningMessage('The Pneumark language server is not running: restart it with "Pneumark: Restart Language Server".');
     return;

@@ -54,7 +54,7 @@ export async function activate(context: vscode.ExtensionContext): Promise<void> 
       starting = restarted;
       return restarted;
     }),
-    vscode.commands.registerCommand('pneumark.convertNoteUnits', () => convertNoteUnits(send())),
+    vscode.commands.registerCommand('pneumark.convertNoteUnits', () => convertNoteUnits(starting.then(send))),
     vscode.commands.registerCommand('pneumark.insertTimepoint', () => insertTimepoint()),
     vscode.commands.registerCommand('pneumark.showTrends', (resource?: unknown) => trends.show(noteFor(resource))),
     vscode.commands.registerCommand('pneumark.openCheckDocs', (code?: unknown) => openCheckDocs(context.extensionUri, code)),

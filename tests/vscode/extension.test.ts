@@ -148,6 +148,42 @@ describe('activation', () => {
     await deactivate();
   });
 
+  it('converts the gas units of a note asked for while the server still starts, rather than saying it is not running', async () => {
+    // The note that woke the extension up is in front, and the user runs the command at once.
+    let started!: () => void;
+    behaviour.startsWhen = new Promise<void>((resolve) => { started = resolve; });
+    const activation = activate(context() as never);
+    const client = clients[0]!;
+    const answer = client.sendRequest.bind(client);
+    client.sendRequest = async (method, params) => {
+      if (method !== 'pneumark/convertUnits') return answer(method, params);
+      client.requests.push({ method, uri: params?.uri });
+      return [{ range: { start: { line: 1, character: 12 }, end: { line: 1, character: 14 } }, newText: '9.3' }];
+    };
+    const editor = openEditor('/work/a.pneu', '@ 08:00\nabg 7.30/40/70/24');
+    state.pick = 'kPa';
+    const run = state.commands.get('pneumark.convertNoteUnits')!() as Promise<void>;
+    await new Promise((r) => setTimeout(r, 20));
+    started();
+    await activation;
+    await run;
+    expect(state.messages.filter((m) => /not running/.test(m.message))).toEqual([]);
+    expect(client.requests).toContainEqual({ method: 'pneumark/convertUnits', uri: 'file:///work/a.pneu' });
+    expect(editor.document.lineAt(1).text).toBe('abg 7.30/40/9.3/24');
+    await deactivate();
+  });
+
+  it('says the server is not running when a conversion is asked for after it failed to start', async () => {
+    behaviour.startFails = true;
+    await activate(context() as never);
+    openEditor('/work/a.pneu', '@ 08:00\nabg 7.30/40/70/24');
+    state.pick = 'kPa';
+    state.messages.length = 0;
+    await state.commands.get('pneumark.convertNoteUnits')!();
+    expect(state.messages).toEqual([expect.objectContaining({ kind: 'warning', message: expect.stringMatching(/language server is not running/) })]);
+    await deactivate();
+  });
+
   it('tells a restored trend view when the server could not start, with what to do', async () => {
     let started!: () => void;
     behaviour.startsWhen = new Promise<void>((resolve) => { started = resolve; });
