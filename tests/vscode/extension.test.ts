@@ -1,7 +1,7 @@
 // The extension's activation as a whole, with stand-ins for VS Code (fake-vscode.ts) and the
 // language client: a server that cannot start, shutting down, what is handed to the client.
 import { beforeEach, describe, expect, it, vi } from 'vitest';
-import { FakeWebviewPanel, openEditor, resetFake, state, Uri } from './fake-vscode';
+import { activate as activateEditor, FakeEditor, FakeWebviewPanel, openEditor, resetFake, state, Uri } from './fake-vscode';
 
 vi.mock('vscode', async () => (await import('./fake-vscode')).vscodeModule);
 
@@ -181,6 +181,50 @@ describe('activation', () => {
     state.messages.length = 0;
     await state.commands.get('pneumark.convertNoteUnits')!();
     expect(state.messages).toEqual([expect.objectContaining({ kind: 'warning', message: expect.stringMatching(/language server is not running/) })]);
+    await deactivate();
+  });
+
+  it('shows the trends of the note the view shows when run with the focus in the view and two notes side by side', async () => {
+    await activate(context() as never);
+    const a = openEditor('/work/a.pneu', '@ 08:00\nabg 7.30/40/70/24');
+    openEditor('/work/b.pneu', '@ 09:00\nabg 7.30/40/70/24');
+    state.commands.get('pneumark.showTrends')!(a.document.uri);
+    const view = state.panels[0]!;
+    await vi.waitFor(() => expect(view.postedOf('trends')).toHaveLength(1));
+    // The focus moves into the trend view (a webview: no text editor is active), and the command
+    // is run from the palette.
+    activateEditor(undefined);
+    state.messages.length = 0;
+    state.commands.get('pneumark.showTrends')!();
+    expect(state.messages).toEqual([]);
+    expect(state.panels).toHaveLength(1);
+    expect(view.revealed).toHaveLength(1);
+    expect(view.title).toBe('Trends: a.pneu');
+    await deactivate();
+  });
+
+  it('asks which note to show when run with the focus outside any editor and several notes in view', async () => {
+    await activate(context() as never);
+    openEditor('/work/a.pneu', '@ 08:00\nabg 7.30/40/70/24');
+    openEditor('/work/b.pneu', '@ 09:00\nabg 7.30/40/70/24');
+    activateEditor(undefined);
+    state.pick = 'b.pneu';
+    await state.commands.get('pneumark.showTrends')!();
+    expect(state.quickPicks.map((q) => q.items.map((i) => i.label))).toEqual([['a.pneu', 'b.pneu']]);
+    expect(state.messages).toEqual([]);
+    expect(state.panels[0]?.title).toBe('Trends: b.pneu');
+    await deactivate();
+  });
+
+  it('shows the one note in view at once when it is split into two editors', async () => {
+    await activate(context() as never);
+    const a = openEditor('/work/a.pneu', '@ 08:00\nabg 7.30/40/70/24');
+    state.visibleTextEditors.push(new FakeEditor(a.document, 0));
+    activateEditor(undefined);
+    state.commands.get('pneumark.showTrends')!();
+    expect(state.quickPicks).toEqual([]);
+    expect(state.messages).toEqual([]);
+    expect(state.panels[0]?.title).toBe('Trends: a.pneu');
     await deactivate();
   });
 
