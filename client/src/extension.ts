@@ -6,6 +6,7 @@ import * as vscode from 'vscode';
 import {
   LanguageClient,
   RevealOutputChannelOn,
+  State,
   TransportKind,
   type LanguageClientOptions,
   type Middleware,
@@ -23,18 +24,30 @@ let client: LanguageClient | null = null;
 export async function activate(context: vscode.ExtensionContext): Promise<void> {
   const output = vscode.window.createOutputChannel('Pneumark', { log: true });
   const trace = traceChannel(output);
-  const crashes = crashHandler(output);
+  // Settles when the latest start of the server (the first, a restart on request, or one after
+  // a crash) has succeeded or failed.
+  let starting: Promise<unknown> = Promise.resolve();
+  // The end of a restart after a crash, which the language client starts itself.
+  let crashRestart: (() => void) | null = null;
+  const crashes = crashHandler(output, Date.now, () => {
+    if (!crashRestart) starting = new Promise<void>((resolve) => { crashRestart = resolve; });
+  });
   const settingsChanges = pneumarkSettingsOnly();
   context.subscriptions.push(output, trace, settingsChanges);
   client = createClient(output, trace, crashes, settingsChanges.middleware, context.asAbsolutePath('dist/server.js'));
+  const current = client;
+  context.subscriptions.push(current.onDidChangeState((e) => {
+    // Running again, or failed to start (Starting, then Stopped).
+    if (crashRestart && (e.newState === State.Running || (e.oldState === State.Starting && e.newState === State.Stopped))) {
+      crashRestart();
+      crashRestart = null;
+    }
+  }));
   // Requests go to the server only while it runs (not while it starts, stops or is stopped).
   const send = (): Requester | null => {
     const c = client;
     return c && c.isRunning() ? (method, params) => c.sendRequest(method, params) : null;
   };
-  // Settles when the latest start of the server (the first, or a restart on request) has
-  // succeeded or failed.
-  let starting: Promise<unknown> = Promise.resolve();
   // The trend view may ask before then (a view restored after a reload, a note analysed while the
   // server restarts): it waits for the start instead of saying the server is not running.
   const trends = new TrendView(context.extensionUri, async () => {

@@ -1,6 +1,6 @@
 // The extension's activation as a whole, with stand-ins for VS Code (fake-vscode.ts) and the
 // language client: a server that cannot start, shutting down, what is handed to the client.
-import { beforeEach, describe, expect, it, vi } from 'vitest';
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { activate as activateEditor, FakeEditor, FakeWebviewPanel, openEditor, resetFake, state, Uri } from './fake-vscode';
 
 vi.mock('vscode', async () => (await import('./fake-vscode')).vscodeModule);
@@ -31,6 +31,32 @@ class FakeClient {
   }
   async restart(): Promise<void> { await this.stop(); await this.start(); }
   isRunning(): boolean { return this.running; }
+  private readonly stateListeners: ((e: { oldState: number; newState: number }) => void)[] = [];
+  onDidChangeState(listener: (e: { oldState: number; newState: number }) => void): { dispose(): void } {
+    this.stateListeners.push(listener);
+    return { dispose: () => undefined };
+  }
+  private changeState(oldState: number, newState: number): void {
+    for (const l of this.stateListeners) l({ oldState, newState });
+  }
+  /**
+   * The server process stops on its own: the client asks the error handler what to do and, told
+   * to restart, starts it again as vscode-languageclient does (running, stopped, starting, running).
+   */
+  async crash(): Promise<void> {
+    const handler = this.options['errorHandler'] as { closed(): { action: number } };
+    const { action } = handler.closed();
+    this.running = false;
+    this.changeState(2, 1);
+    if (action !== 2) return;
+    this.changeState(1, 3);
+    try {
+      await this.start();
+      this.changeState(3, 2);
+    } catch {
+      this.changeState(3, 1);
+    }
+  }
   onNotification(method: string, handler: (params: unknown) => void): void { this.notifications.set(method, handler); }
   /** A server that knows no note but answers for the trends of any (one timepoint). */
   async sendRequest(method: string, params: { uri?: unknown }): Promise<unknown> {
@@ -43,14 +69,24 @@ vi.mock('vscode-languageclient/node', () => ({
   LanguageClient: FakeClient,
   ErrorAction: { Continue: 1, Shutdown: 2 },
   CloseAction: { DoNotRestart: 1, Restart: 2 },
+  State: { Stopped: 1, Running: 2, Starting: 3 },
   RevealOutputChannelOn: { Never: 4 },
   TransportKind: { stdio: 0 },
 }));
 const { activate, deactivate } = await import('../../client/src/extension');
 
+/** The contexts handed to `activate`, whose subscriptions are disposed after each test as VS Code does after deactivating. */
+const contexts: { subscriptions: { dispose(): void }[] }[] = [];
 function context() {
-  return { subscriptions: [] as { dispose(): void }[], extensionUri: Uri.file('/ext'), asAbsolutePath: (p: string) => `/ext/${p}` };
+  const made = { subscriptions: [] as { dispose(): void }[], extensionUri: Uri.file('/ext'), asAbsolutePath: (p: string) => `/ext/${p}` };
+  contexts.push(made);
+  return made;
 }
+
+afterEach(async () => {
+  await deactivate();
+  for (const c of contexts.splice(0)) for (const d of c.subscriptions) d.dispose();
+});
 
 beforeEach(() => {
   resetFake();
@@ -118,6 +154,40 @@ describe('activation', () => {
     await expect(restart).resolves.toBe(true);
     await vi.waitFor(() => expect(view.postedOf('trends')).toHaveLength(2));
     expect(view.postedOf('error')).toEqual([]);
+    await deactivate();
+  });
+
+  it('keeps the trend view waiting while the server restarts after a crash, and never says it is not running', async () => {
+    await activate(context() as never);
+    openEditor('/work/a.pneu', '@ 08:00\nabg 7.30/40/70/24');
+    state.commands.get('pneumark.showTrends')!();
+    const view = state.panels[0]!;
+    await vi.waitFor(() => expect(view.postedOf('trends')).toHaveLength(1));
+    let started!: () => void;
+    behaviour.startsWhen = new Promise<void>((resolve) => { started = resolve; });
+    const restarted = clients[0]!.crash();
+    // The user goes to another note while the server starts again.
+    openEditor('/work/b.pneu', '@ 09:00\nabg 7.30/40/70/24');
+    await new Promise((r) => setTimeout(r, 50));
+    expect(view.postedOf('error')).toEqual([]);
+    started();
+    await restarted;
+    await vi.waitFor(() => expect(view.postedOf('trends')).toHaveLength(2));
+    expect(view.postedOf('trends')[1]).toMatchObject({ uri: 'file:///work/b.pneu' });
+    expect(view.postedOf('error')).toEqual([]);
+    await deactivate();
+  });
+
+  it('tells the trend view the server is not running once it has stopped for good after repeated crashes', async () => {
+    await activate(context() as never);
+    openEditor('/work/a.pneu', '@ 08:00\nabg 7.30/40/70/24');
+    state.commands.get('pneumark.showTrends')!();
+    const view = state.panels[0]!;
+    await vi.waitFor(() => expect(view.postedOf('trends')).toHaveLength(1));
+    for (let i = 0; i < 5; i++) await clients[0]!.crash();
+    expect(clients[0]!.isRunning()).toBe(false);
+    openEditor('/work/b.pneu', '@ 09:00\nabg 7.30/40/70/24');
+    await vi.waitFor(() => expect(view.postedOf('error')).toEqual([{ type: 'error', message: 'the Pneumark language server is not running (run "Pneumark: Restart Language Server")' }]));
     await deactivate();
   });
 
