@@ -37,8 +37,8 @@ export async function activate(context: vscode.ExtensionContext): Promise<void> 
   client = createClient(output, trace, crashes, settingsChanges.middleware, context.asAbsolutePath('dist/server.js'));
   const current = client;
   context.subscriptions.push(current.onDidChangeState((e) => {
-    // Running again, or failed to start (Starting, then Stopped).
-    if (crashRestart && (e.newState === State.Running || (e.oldState === State.Starting && e.newState === State.Stopped))) {
+    // Out of the start: running again, failed to start, or stopped while starting.
+    if (crashRestart && e.oldState === State.Starting) {
       crashRestart();
       crashRestart = null;
     }

@@ -54,7 +54,7 @@ class FakeClient {
       await this.start();
       this.changeState(3, 2);
     } catch {
-      this.changeState(3, 1);
+      this.changeState(3, 4);
     }
   }
   onNotification(method: string, handler: (params: unknown) => void): void { this.notifications.set(method, handler); }
@@ -69,7 +69,7 @@ vi.mock('vscode-languageclient/node', () => ({
   LanguageClient: FakeClient,
   ErrorAction: { Continue: 1, Shutdown: 2 },
   CloseAction: { DoNotRestart: 1, Restart: 2 },
-  State: { Stopped: 1, Running: 2, Starting: 3 },
+  State: { Stopped: 1, Running: 2, Starting: 3, StartFailed: 4 },
   RevealOutputChannelOn: { Never: 4 },
   TransportKind: { stdio: 0 },
 }));
@@ -176,6 +176,24 @@ describe('activation', () => {
     expect(view.postedOf('trends')[1]).toMatchObject({ uri: 'file:///work/b.pneu' });
     expect(view.postedOf('error')).toEqual([]);
     await deactivate();
+  });
+
+  it('tells the trend view the server is not running when it fails to start again after a crash', async () => {
+    await activate(context() as never);
+    openEditor('/work/a.pneu', '@ 08:00\nabg 7.30/40/70/24');
+    state.commands.get('pneumark.showTrends')!();
+    const view = state.panels[0]!;
+    await vi.waitFor(() => expect(view.postedOf('trends')).toHaveLength(1));
+    let started!: () => void;
+    behaviour.startsWhen = new Promise<void>((resolve) => { started = resolve; });
+    behaviour.startFails = true;
+    const restarted = clients[0]!.crash();
+    openEditor('/work/b.pneu', '@ 09:00\nabg 7.30/40/70/24');
+    await new Promise((r) => setTimeout(r, 20));
+    expect(view.postedOf('error')).toEqual([]);
+    started();
+    await restarted;
+    await vi.waitFor(() => expect(view.postedOf('error')).toEqual([{ type: 'error', message: 'the Pneumark language server is not running (run "Pneumark: Restart Language Server")' }]));
   });
 
   it('tells the trend view the server is not running once it has stopped for good after repeated crashes', async () => {
