@@ -45,6 +45,10 @@ export class TrendView implements vscode.Disposable, vscode.WebviewPanelSerializ
       vscode.workspace.onDidCloseTextDocument((document) => {
         if (this.panel && document.uri.toString() === this.uri?.toString()) void this.refresh();
       }),
+      // A change of the note's language mode closes it and opens it again in the new language.
+      vscode.workspace.onDidOpenTextDocument((document) => {
+        if (this.panel && document.uri.toString() === this.uri?.toString()) void this.refresh();
+      }),
     );
   }
 

@@ -3,7 +3,7 @@
 // restoring after a reload of the window, going to a timepoint.
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import type { TrendPoint, TrendsParams, TrendsResult } from '../../server/src/protocol';
-import { closeDocument, FakeWebviewPanel, openEditor, resetFake, state, Uri } from './fake-vscode';
+import { changeLanguage, closeDocument, FakeWebviewPanel, openEditor, resetFake, state, Uri } from './fake-vscode';
 
 vi.mock('vscode', async () => (await import('./fake-vscode')).vscodeModule);
 const { TrendView } = await import('../../client/src/trend-view');
@@ -130,6 +130,20 @@ describe('the trend view', () => {
     openEditor('/work/a.pneu', '@ 08:00');
     closeDocument(again.document);
     view.noteAnalysed('file:///work/a.pneu');
+    await vi.runAllTimersAsync();
+    expect(lastPosted()).toMatchObject({ type: 'trends', closed: false, points: [point(2, 70)] });
+  });
+
+  it('says its note is not open as a Pneumark note when the language mode of the same document is changed, as VS Code tells it', async () => {
+    const { send } = server();
+    view = new TrendView(extensionUri, () => send, 10);
+    const editor = openEditor('/work/a.pneu', '@ 08:00');
+    view.show(editor.document as never);
+    await vi.runAllTimersAsync();
+    changeLanguage(editor.document, 'plaintext');
+    await vi.runAllTimersAsync();
+    expect(lastPosted()).toEqual({ type: 'notice', uri: 'file:///work/a.pneu', message: 'a.pneu is not open as a Pneumark note: set its language mode to Pneumark to see its trends.' });
+    changeLanguage(editor.document, 'pneumark');
     await vi.runAllTimersAsync();
     expect(lastPosted()).toMatchObject({ type: 'trends', closed: false, points: [point(2, 70)] });
   });
