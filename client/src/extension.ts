@@ -131,7 +131,8 @@ function noteFor(resource: unknown, shown: vscode.Uri | null): vscode.TextDocume
   if (onShow) return onShow;
   // Asked only here, so that the view opens at once (before the command's promise settles) otherwise.
   return Promise.resolve(vscode.window.showQuickPick(
-    notes.map((document) => ({ label: shownEscaped(document.isUntitled ? document.uri.path : vscode.workspace.asRelativePath(document.uri)), document })),
+    // `$(name)` in a label is an icon: a zero-width space keeps a file name as it is written.
+    notes.map((document) => ({ label: shownEscaped(document.isUntitled ? document.uri.path : vscode.workspace.asRelativePath(document.uri)).replace(/\$\(/g, '$\u200b('), document })),
     { title: 'Show the trends of', placeHolder: 'a Pneumark note in view' },
   )).then((picked) => picked?.document ?? null);
 }

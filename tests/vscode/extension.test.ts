@@ -304,6 +304,15 @@ describe('activation', () => {
     await deactivate();
   });
 
+  it('names the notes it asks about as text: a file name never turns into an icon', async () => {
+    await activate(context() as never);
+    openEditor('/work/$(warning) a.pneu', '@ 08:00');
+    openEditor('/work/b.pneu', '@ 09:00');
+    activateEditor(undefined);
+    await state.commands.get('pneumark.showTrends')!();
+    expect(state.quickPicks[0]?.items.map((i) => i.label)).toEqual(['$\u200b(warning) a.pneu', 'b.pneu']);
+  });
+
   it('shows the one note in view at once when it is split into two editors', async () => {
     await activate(context() as never);
     const a = openEditor('/work/a.pneu', '@ 08:00\nabg 7.30/40/70/24');
