@@ -1,8 +1,8 @@
 /**
  * The editing commands and the check documentation: Convert Gas Units of This Note, Insert
  * Timepoint and Open Check Documentation. Each says plainly why it did nothing, when it did
- * nothing: no Pneumark note in front, a read-only note, a note that changed while the server
- * worked out the edits.
+ * nothing: no Pneumark note in front, a read-only note, a note that changed or was closed while
+ * the server worked out the edits.
  */
 import * as vscode from 'vscode';
 import { CONVERT_UNITS_REQUEST, type ConvertUnitsParams, type PlainTextEdit } from '../../server/src/protocol';
@@ -16,13 +16,24 @@ function activeNote(purpose: string): vscode.TextEditor | null {
   return null;
 }
 
-function readOnlyMessage(document: vscode.TextDocument): string {
-  return `${document.isUntitled ? 'This note' : inMessage(vscode.workspace.asRelativePath(document.uri))} could not be changed: it is read-only.`;
+/** The note as a message names it: its path in the workspace, as text (see message-text.ts). */
+function noteName(document: vscode.TextDocument): string {
+  return document.isUntitled ? 'This note' : inMessage(vscode.workspace.asRelativePath(document.uri));
 }
 
-export async function convertNoteUnits(send: Requester | null): Promise<void> {
+function readOnlyMessage(document: vscode.TextDocument): string {
+  return `${noteName(document)} could not be changed: it is read-only.`;
+}
+
+/**
+ * `server` gives the way to the server, or null when it is not running; it may first wait for a
+ * start under way (the note that woke the extension up, a restart on request), so that a command
+ * run at once is not told the server is not running.
+ */
+export async function convertNoteUnits(server: Requester | null | Promise<Requester | null>): Promise<void> {
   const editor = activeNote('to convert its gas units');
   if (!editor) return;
+  const send = await server;
   if (!send) {
     void vscode.window.showWarningMessage('The Pneumark language server is not running: restart it with "Pneumark: Restart Language Server".');
     return;
@@ -45,7 +56,10 @@ export async function convertNoteUnits(send: Requester | null): Promise<void> {
     void vscode.window.showErrorMessage(`The gas units could not be converted: ${inMessage(error instanceof Error ? error.message : String(error))}`);
     return;
   }
-  if (document.isClosed) return;
+  if (document.isClosed) {
+    void vscode.window.showWarningMessage(`${noteName(document)} was closed while its units were being converted, so nothing was changed.`);
+    return;
+  }
   // Edits worked out for one version of the note would land in the wrong places in another.
   if (document.version !== version) {
     void vscode.window.showWarningMessage('The note changed while its units were being converted, so nothing was changed: run the command again.');

@@ -6,6 +6,7 @@ import * as vscode from 'vscode';
 import {
   LanguageClient,
   RevealOutputChannelOn,
+  State,
   TransportKind,
   type LanguageClientOptions,
   type Middleware,
@@ -14,6 +15,7 @@ import {
 import { ANALYSED_NOTIFICATION, type AnalysedParams } from '../../server/src/protocol';
 import { convertNoteUnits, insertTimepoint, openCheckDocs } from './commands';
 import { crashHandler, pneumarkSettingsOnly, restartServer, traceChannel, type CrashHandler } from './server-process';
+import { shownEscaped } from '../../server/src/core/util/format';
 import { LANGUAGE, TimepointStatus, type Requester } from './status';
 import { TREND_VIEW_TYPE, TrendView } from './trend-view';
 
@@ -22,18 +24,30 @@ let client: LanguageClient | null = null;
 export async function activate(context: vscode.ExtensionContext): Promise<void> {
   const output = vscode.window.createOutputChannel('Pneumark', { log: true });
   const trace = traceChannel(output);
-  const crashes = crashHandler(output);
+  // Settles when the latest start of the server (the first, a restart on request, or one after
+  // a crash) has succeeded or failed.
+  let starting: Promise<unknown> = Promise.resolve();
+  // The end of a restart after a crash, which the language client starts itself.
+  let crashRestart: (() => void) | null = null;
+  const crashes = crashHandler(output, Date.now, () => {
+    if (!crashRestart) starting = new Promise<void>((resolve) => { crashRestart = resolve; });
+  });
   const settingsChanges = pneumarkSettingsOnly();
   context.subscriptions.push(output, trace, settingsChanges);
   client = createClient(output, trace, crashes, settingsChanges.middleware, context.asAbsolutePath('dist/server.js'));
+  const current = client;
+  context.subscriptions.push(current.onDidChangeState((e) => {
+    // Out of the start: running again, failed to start, or stopped while starting.
+    if (crashRestart && e.oldState === State.Starting) {
+      crashRestart();
+      crashRestart = null;
+    }
+  }));
   // Requests go to the server only while it runs (not while it starts, stops or is stopped).
   const send = (): Requester | null => {
     const c = client;
     return c && c.isRunning() ? (method, params) => c.sendRequest(method, params) : null;
   };
-  // Settles when the latest start of the server (the first, or a restart on request) has
-  // succeeded or failed.
-  let starting: Promise<unknown> = Promise.resolve();
   // The trend view may ask before then (a view restored after a reload, a note analysed while the
   // server restarts): it waits for the start instead of saying the server is not running.
   const trends = new TrendView(context.extensionUri, async () => {
@@ -54,9 +68,13 @@ export async function activate(context: vscode.ExtensionContext): Promise<void> 
       starting = restarted;
       return restarted;
     }),
-    vscode.commands.registerCommand('pneumark.convertNoteUnits', () => convertNoteUnits(send())),
+    vscode.commands.registerCommand('pneumark.convertNoteUnits', () => convertNoteUnits(starting.then(send))),
     vscode.commands.registerCommand('pneumark.insertTimepoint', () => insertTimepoint()),
-    vscode.commands.registerCommand('pneumark.showTrends', (resource?: unknown) => trends.show(noteFor(resource))),
+    vscode.commands.registerCommand('pneumark.showTrends', (resource?: unknown) => {
+      const note = noteFor(resource, trends.note);
+      if (!(note instanceof Promise)) return trends.show(note);
+      return note.then((picked) => { if (picked !== null) trends.show(picked); });
+    }),
     vscode.commands.registerCommand('pneumark.openCheckDocs', (code?: unknown) => openCheckDocs(context.extensionUri, code)),
     vscode.commands.registerCommand('pneumark.showOutput', () => output.show()),
   );
@@ -91,17 +109,32 @@ export async function deactivate(): Promise<void> {
 
 /**
  * The note a Show Trends command is for: the one whose editor title bar it was run from, else
- * the active editor's, else the one visible Pneumark note (when the focus is in a panel).
+ * the active editor's, else the one visible Pneumark note (when the focus is in a panel or a
+ * webview such as the trend view itself). With several notes in view and no text editor active,
+ * the one the trend view shows, if it is among them, else the one the user picks (null: the pick
+ * was cancelled). Undefined (or a document of another language) makes the view say to open a note.
  */
-function noteFor(resource: unknown): vscode.TextDocument | undefined {
+function noteFor(resource: unknown, shown: vscode.Uri | null): vscode.TextDocument | undefined | Promise<vscode.TextDocument | null> {
   if (resource instanceof vscode.Uri) {
     const document = vscode.workspace.textDocuments.find((d) => d.uri.toString() === resource.toString());
     if (document) return document;
   }
   const active = vscode.window.activeTextEditor?.document;
   if (active?.languageId === LANGUAGE) return active;
-  const notes = vscode.window.visibleTextEditors.filter((e) => e.document.languageId === LANGUAGE);
-  return notes.length === 1 ? notes[0]!.document : active;
+  const notes: vscode.TextDocument[] = [];
+  for (const e of vscode.window.visibleTextEditors) {
+    if (e.document.languageId === LANGUAGE && !notes.some((d) => d.uri.toString() === e.document.uri.toString())) notes.push(e.document);
+  }
+  if (notes.length === 1) return notes[0]!;
+  if (active || notes.length === 0) return active;
+  const onShow = shown ? notes.find((d) => d.uri.toString() === shown.toString()) : undefined;
+  if (onShow) return onShow;
+  // Asked only here, so that the view opens at once (before the command's promise settles) otherwise.
+  return Promise.resolve(vscode.window.showQuickPick(
+    // `$(name)` in a label is an icon: a zero-width space keeps a file name as it is written.
+    notes.map((document) => ({ label: shownEscaped(document.isUntitled ? document.uri.path : vscode.workspace.asRelativePath(document.uri)).replace(/\$\(/g, '$\u200b('), document })),
+    { title: 'Show the trends of', placeHolder: 'a Pneumark note in view' },
+  )).then((picked) => picked?.document ?? null);
 }
 
 function createClient(output: vscode.LogOutputChannel, trace: vscode.LogOutputChannel, crashes: CrashHandler, didChangeConfiguration: NonNullable<NonNullable<Middleware['workspace']>['didChangeConfiguration']>, module: string): LanguageClient {

@@ -20,9 +20,10 @@ export interface CrashHandler extends ErrorHandler {
  * Restarts a server that stopped on its own, and says so: nothing for a first crash (it is
  * logged), a warning after a second one within three minutes, and after the fifth an error
  * with a Restart button, the server left stopped. The language client's own notifications are
- * marked handled so that the user sees one message, not two.
+ * marked handled so that the user sees one message, not two. `restarting` is told each time the
+ * server is to be started again, before the language client starts it.
  */
-export function crashHandler(output: vscode.LogOutputChannel, now: () => number = Date.now): CrashHandler {
+export function crashHandler(output: vscode.LogOutputChannel, now: () => number = Date.now, restarting: () => void = () => undefined): CrashHandler {
   const crashes: number[] = [];
   return {
     reset: () => { crashes.length = 0; },
@@ -44,6 +45,7 @@ export function crashHandler(output: vscode.LogOutputChannel, now: () => number 
         return { action: CloseAction.DoNotRestart, handled: true, message: 'the language server stopped repeatedly and was not restarted; run "Pneumark: Restart Language Server" to start it again' };
       }
       if (count > 1) void vscode.window.showWarningMessage(`The Pneumark language server stopped (${count} times in 3 minutes) and was restarted.`);
+      restarting();
       return { action: CloseAction.Restart, handled: true, message: 'the language server was restarted' };
     },
   };

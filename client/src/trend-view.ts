@@ -45,6 +45,10 @@ export class TrendView implements vscode.Disposable, vscode.WebviewPanelSerializ
       vscode.workspace.onDidCloseTextDocument((document) => {
         if (this.panel && document.uri.toString() === this.uri?.toString()) void this.refresh();
       }),
+      // A change of the note's language mode closes it and opens it again in the new language.
+      vscode.workspace.onDidOpenTextDocument((document) => {
+        if (this.panel && document.uri.toString() === this.uri?.toString()) void this.refresh();
+      }),
     );
   }
 
@@ -161,8 +165,12 @@ export class TrendView implements vscode.Disposable, vscode.WebviewPanelSerializ
   }
 
   private isOpen(uri: vscode.Uri): boolean {
+    return this.openDocument(uri) !== undefined;
+  }
+
+  private openDocument(uri: vscode.Uri): vscode.TextDocument | undefined {
     const key = uri.toString();
-    return vscode.workspace.textDocuments.some((d) => d.uri.toString() === key && !d.isClosed);
+    return vscode.workspace.textDocuments.find((d) => d.uri.toString() === key && !d.isClosed);
   }
 
   /** Asks the server for the note's points and posts them; keeps the last ones for a closed note. */
@@ -190,6 +198,14 @@ export class TrendView implements vscode.Disposable, vscode.WebviewPanelSerializ
         return;
       }
       if (generation !== this.generation) return;
+    }
+    // A note whose language mode was changed (or that a reload opened in another one) is not
+    // analysed: the server knows nothing of it, which would read as a note without timepoints.
+    const language = this.openDocument(uri)?.languageId;
+    if (language !== undefined && language !== LANGUAGE) {
+      this.last = null;
+      await this.post({ type: 'notice', message: `${note} is not open as a Pneumark note: set its language mode to Pneumark to see its trends.`, uri: key });
+      return;
     }
     const send = await this.send();
     if (generation !== this.generation) return;

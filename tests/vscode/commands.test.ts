@@ -3,7 +3,7 @@
 import { readFileSync } from 'node:fs';
 import { beforeEach, describe, expect, it, vi } from 'vitest';
 import type { ConvertUnitsParams, PlainTextEdit } from '../../server/src/protocol';
-import { openEditor, Range, resetFake, state, Uri } from './fake-vscode';
+import { closeDocument, openEditor, Range, resetFake, state, Uri } from './fake-vscode';
 
 vi.mock('vscode', async () => (await import('./fake-vscode')).vscodeModule);
 const { checkDocs, convertNoteUnits, findCheck, insertTimepoint, openCheckDocs, timepointInsertion } = await import('../../client/src/commands');
@@ -71,6 +71,16 @@ describe('Convert Gas Units of This Note', () => {
     openEditor('/work/README.md', '# x', { languageId: 'markdown' });
     await convertNoteUnits(converter().send);
     expect(state.messages.pop()?.message).toBe('Open a Pneumark note (.pneu) to convert its gas units.');
+  });
+
+  it('says nothing was changed when the note was closed while the edits were worked out', async () => {
+    const editor = openEditor('/work/a.pneu', NOTE);
+    const { send, whileWorking } = converter();
+    whileWorking(() => closeDocument(editor.document));
+    state.pick = 'kPa';
+    await convertNoteUnits(send);
+    expect(state.appliedEdits).toEqual([]);
+    expect(state.messages).toEqual([expect.objectContaining({ kind: 'warning', message: 'a.pneu was closed while its units were being converted, so nothing was changed.' })]);
   });
 
   it('shows a failed request as a message rather than a rejected promise', async () => {

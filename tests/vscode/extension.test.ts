@@ -1,7 +1,7 @@
 // The extension's activation as a whole, with stand-ins for VS Code (fake-vscode.ts) and the
 // language client: a server that cannot start, shutting down, what is handed to the client.
-import { beforeEach, describe, expect, it, vi } from 'vitest';
-import { FakeWebviewPanel, openEditor, resetFake, state, Uri } from './fake-vscode';
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import { activate as activateEditor, FakeEditor, FakeWebviewPanel, openEditor, resetFake, state, Uri } from './fake-vscode';
 
 vi.mock('vscode', async () => (await import('./fake-vscode')).vscodeModule);
 
@@ -31,6 +31,32 @@ class FakeClient {
   }
   async restart(): Promise<void> { await this.stop(); await this.start(); }
   isRunning(): boolean { return this.running; }
+  private readonly stateListeners: ((e: { oldState: number; newState: number }) => void)[] = [];
+  onDidChangeState(listener: (e: { oldState: number; newState: number }) => void): { dispose(): void } {
+    this.stateListeners.push(listener);
+    return { dispose: () => undefined };
+  }
+  private changeState(oldState: number, newState: number): void {
+    for (const l of this.stateListeners) l({ oldState, newState });
+  }
+  /**
+   * The server process stops on its own: the client asks the error handler what to do and, told
+   * to restart, starts it again as vscode-languageclient does (running, stopped, starting, running).
+   */
+  async crash(): Promise<void> {
+    const handler = this.options['errorHandler'] as { closed(): { action: number } };
+    const { action } = handler.closed();
+    this.running = false;
+    this.changeState(2, 1);
+    if (action !== 2) return;
+    this.changeState(1, 3);
+    try {
+      await this.start();
+      this.changeState(3, 2);
+    } catch {
+      this.changeState(3, 4);
+    }
+  }
   onNotification(method: string, handler: (params: unknown) => void): void { this.notifications.set(method, handler); }
   /** A server that knows no note but answers for the trends of any (one timepoint). */
   async sendRequest(method: string, params: { uri?: unknown }): Promise<unknown> {
@@ -43,14 +69,24 @@ vi.mock('vscode-languageclient/node', () => ({
   LanguageClient: FakeClient,
   ErrorAction: { Continue: 1, Shutdown: 2 },
   CloseAction: { DoNotRestart: 1, Restart: 2 },
+  State: { Stopped: 1, Running: 2, Starting: 3, StartFailed: 4 },
   RevealOutputChannelOn: { Never: 4 },
   TransportKind: { stdio: 0 },
 }));
 const { activate, deactivate } = await import('../../client/src/extension');
 
+/** The contexts handed to `activate`, whose subscriptions are disposed after each test as VS Code does after deactivating. */
+const contexts: { subscriptions: { dispose(): void }[] }[] = [];
 function context() {
-  return { subscriptions: [] as { dispose(): void }[], extensionUri: Uri.file('/ext'), asAbsolutePath: (p: string) => `/ext/${p}` };
+  const made = { subscriptions: [] as { dispose(): void }[], extensionUri: Uri.file('/ext'), asAbsolutePath: (p: string) => `/ext/${p}` };
+  contexts.push(made);
+  return made;
 }
+
+afterEach(async () => {
+  await deactivate();
+  for (const c of contexts.splice(0)) for (const d of c.subscriptions) d.dispose();
+});
 
 beforeEach(() => {
   resetFake();
@@ -121,6 +157,58 @@ describe('activation', () => {
     await deactivate();
   });
 
+  it('keeps the trend view waiting while the server restarts after a crash, and never says it is not running', async () => {
+    await activate(context() as never);
+    openEditor('/work/a.pneu', '@ 08:00\nabg 7.30/40/70/24');
+    state.commands.get('pneumark.showTrends')!();
+    const view = state.panels[0]!;
+    await vi.waitFor(() => expect(view.postedOf('trends')).toHaveLength(1));
+    let started!: () => void;
+    behaviour.startsWhen = new Promise<void>((resolve) => { started = resolve; });
+    const restarted = clients[0]!.crash();
+    // The user goes to another note while the server starts again.
+    openEditor('/work/b.pneu', '@ 09:00\nabg 7.30/40/70/24');
+    await new Promise((r) => setTimeout(r, 50));
+    expect(view.postedOf('error')).toEqual([]);
+    started();
+    await restarted;
+    await vi.waitFor(() => expect(view.postedOf('trends')).toHaveLength(2));
+    expect(view.postedOf('trends')[1]).toMatchObject({ uri: 'file:///work/b.pneu' });
+    expect(view.postedOf('error')).toEqual([]);
+    await deactivate();
+  });
+
+  it('tells the trend view the server is not running when it fails to start again after a crash', async () => {
+    await activate(context() as never);
+    openEditor('/work/a.pneu', '@ 08:00\nabg 7.30/40/70/24');
+    state.commands.get('pneumark.showTrends')!();
+    const view = state.panels[0]!;
+    await vi.waitFor(() => expect(view.postedOf('trends')).toHaveLength(1));
+    let started!: () => void;
+    behaviour.startsWhen = new Promise<void>((resolve) => { started = resolve; });
+    behaviour.startFails = true;
+    const restarted = clients[0]!.crash();
+    openEditor('/work/b.pneu', '@ 09:00\nabg 7.30/40/70/24');
+    await new Promise((r) => setTimeout(r, 20));
+    expect(view.postedOf('error')).toEqual([]);
+    started();
+    await restarted;
+    await vi.waitFor(() => expect(view.postedOf('error')).toEqual([{ type: 'error', message: 'the Pneumark language server is not running (run "Pneumark: Restart Language Server")' }]));
+  });
+
+  it('tells the trend view the server is not running once it has stopped for good after repeated crashes', async () => {
+    await activate(context() as never);
+    openEditor('/work/a.pneu', '@ 08:00\nabg 7.30/40/70/24');
+    state.commands.get('pneumark.showTrends')!();
+    const view = state.panels[0]!;
+    await vi.waitFor(() => expect(view.postedOf('trends')).toHaveLength(1));
+    for (let i = 0; i < 5; i++) await clients[0]!.crash();
+    expect(clients[0]!.isRunning()).toBe(false);
+    openEditor('/work/b.pneu', '@ 09:00\nabg 7.30/40/70/24');
+    await vi.waitFor(() => expect(view.postedOf('error')).toEqual([{ type: 'error', message: 'the Pneumark language server is not running (run "Pneumark: Restart Language Server")' }]));
+    await deactivate();
+  });
+
   it('asks the restarted server again for trends that the stopping one failed to give', async () => {
     await activate(context() as never);
     const editor = openEditor('/work/a.pneu', '@ 08:00\nabg 7.30/40/70/24');
@@ -145,6 +233,95 @@ describe('activation', () => {
     expect(calls).toBe(2);
     expect(view.postedOf('error')).toEqual([]);
     await expect(restart).resolves.toBe(true);
+    await deactivate();
+  });
+
+  it('converts the gas units of a note asked for while the server still starts, rather than saying it is not running', async () => {
+    // The note that woke the extension up is in front, and the user runs the command at once.
+    let started!: () => void;
+    behaviour.startsWhen = new Promise<void>((resolve) => { started = resolve; });
+    const activation = activate(context() as never);
+    const client = clients[0]!;
+    const answer = client.sendRequest.bind(client);
+    client.sendRequest = async (method, params) => {
+      if (method !== 'pneumark/convertUnits') return answer(method, params);
+      client.requests.push({ method, uri: params?.uri });
+      return [{ range: { start: { line: 1, character: 12 }, end: { line: 1, character: 14 } }, newText: '9.3' }];
+    };
+    const editor = openEditor('/work/a.pneu', '@ 08:00\nabg 7.30/40/70/24');
+    state.pick = 'kPa';
+    const run = state.commands.get('pneumark.convertNoteUnits')!() as Promise<void>;
+    await new Promise((r) => setTimeout(r, 20));
+    started();
+    await activation;
+    await run;
+    expect(state.messages.filter((m) => /not running/.test(m.message))).toEqual([]);
+    expect(client.requests).toContainEqual({ method: 'pneumark/convertUnits', uri: 'file:///work/a.pneu' });
+    expect(editor.document.lineAt(1).text).toBe('abg 7.30/40/9.3/24');
+    await deactivate();
+  });
+
+  it('says the server is not running when a conversion is asked for after it failed to start', async () => {
+    behaviour.startFails = true;
+    await activate(context() as never);
+    openEditor('/work/a.pneu', '@ 08:00\nabg 7.30/40/70/24');
+    state.pick = 'kPa';
+    state.messages.length = 0;
+    await state.commands.get('pneumark.convertNoteUnits')!();
+    expect(state.messages).toEqual([expect.objectContaining({ kind: 'warning', message: expect.stringMatching(/language server is not running/) })]);
+    await deactivate();
+  });
+
+  it('shows the trends of the note the view shows when run with the focus in the view and two notes side by side', async () => {
+    await activate(context() as never);
+    const a = openEditor('/work/a.pneu', '@ 08:00\nabg 7.30/40/70/24');
+    openEditor('/work/b.pneu', '@ 09:00\nabg 7.30/40/70/24');
+    state.commands.get('pneumark.showTrends')!(a.document.uri);
+    const view = state.panels[0]!;
+    await vi.waitFor(() => expect(view.postedOf('trends')).toHaveLength(1));
+    // The focus moves into the trend view (a webview: no text editor is active), and the command
+    // is run from the palette.
+    activateEditor(undefined);
+    state.messages.length = 0;
+    state.commands.get('pneumark.showTrends')!();
+    expect(state.messages).toEqual([]);
+    expect(state.panels).toHaveLength(1);
+    expect(view.revealed).toHaveLength(1);
+    expect(view.title).toBe('Trends: a.pneu');
+    await deactivate();
+  });
+
+  it('asks which note to show when run with the focus outside any editor and several notes in view', async () => {
+    await activate(context() as never);
+    openEditor('/work/a.pneu', '@ 08:00\nabg 7.30/40/70/24');
+    openEditor('/work/b.pneu', '@ 09:00\nabg 7.30/40/70/24');
+    activateEditor(undefined);
+    state.pick = 'b.pneu';
+    await state.commands.get('pneumark.showTrends')!();
+    expect(state.quickPicks.map((q) => q.items.map((i) => i.label))).toEqual([['a.pneu', 'b.pneu']]);
+    expect(state.messages).toEqual([]);
+    expect(state.panels[0]?.title).toBe('Trends: b.pneu');
+    await deactivate();
+  });
+
+  it('names the notes it asks about as text: a file name never turns into an icon', async () => {
+    await activate(context() as never);
+    openEditor('/work/$(warning) a.pneu', '@ 08:00');
+    openEditor('/work/b.pneu', '@ 09:00');
+    activateEditor(undefined);
+    await state.commands.get('pneumark.showTrends')!();
+    expect(state.quickPicks[0]?.items.map((i) => i.label)).toEqual(['$\u200b(warning) a.pneu', 'b.pneu']);
+  });
+
+  it('shows the one note in view at once when it is split into two editors', async () => {
+    await activate(context() as never);
+    const a = openEditor('/work/a.pneu', '@ 08:00\nabg 7.30/40/70/24');
+    state.visibleTextEditors.push(new FakeEditor(a.document, 0));
+    activateEditor(undefined);
+    state.commands.get('pneumark.showTrends')!();
+    expect(state.quickPicks).toEqual([]);
+    expect(state.messages).toEqual([]);
+    expect(state.panels[0]?.title).toBe('Trends: a.pneu');
     await deactivate();
   });
 

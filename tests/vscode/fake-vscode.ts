@@ -308,6 +308,16 @@ export function closeDocument(document: FakeDocument): void {
   state.events.closeDocument.fire(document);
 }
 
+/**
+ * Changes a document's language mode as VS Code tells extensions of it: the same document is
+ * closed, takes the new language, and is opened again.
+ */
+export function changeLanguage(document: FakeDocument, languageId: string): void {
+  state.events.closeDocument.fire(document);
+  document.languageId = languageId;
+  state.events.openDocument.fire(document);
+}
+
 function show(kind: Shown['kind']) {
   return async (message: string, ...items: unknown[]): Promise<string | undefined> => {
     const titles = items.filter((i): i is string => typeof i === 'string');

@@ -55,6 +55,16 @@ describe('when the server stops', () => {
     expect(lines.filter((l) => l.startsWith('[warning]'))).toHaveLength(5);
   });
 
+  it('says a restart is coming each time it restarts the server, and not when it leaves it stopped', () => {
+    const { channel } = output();
+    let restarts = 0;
+    const handler = crashHandler(channel as never, () => 0, () => { restarts++; });
+    for (let i = 0; i < MAX_RESTARTS; i++) expect((handler.closed() as { action: number }).action).toBe(2);
+    expect(restarts).toBe(MAX_RESTARTS);
+    expect((handler.closed() as { action: number }).action).toBe(1);
+    expect(restarts).toBe(MAX_RESTARTS);
+  });
+
   it('counts only the crashes of the last three minutes', () => {
     const { channel } = output();
     let now = 0;

@@ -3,7 +3,7 @@
 // restoring after a reload of the window, going to a timepoint.
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import type { TrendPoint, TrendsParams, TrendsResult } from '../../server/src/protocol';
-import { closeDocument, FakeWebviewPanel, openEditor, resetFake, state, Uri } from './fake-vscode';
+import { changeLanguage, closeDocument, FakeWebviewPanel, openEditor, resetFake, state, Uri } from './fake-vscode';
 
 vi.mock('vscode', async () => (await import('./fake-vscode')).vscodeModule);
 const { TrendView } = await import('../../client/src/trend-view');
@@ -12,7 +12,7 @@ function point(line: number, pao2: number): TrendPoint {
   return { timepoint: line, label: `at ${line}`, line, minutes: null, values: { pao2: { value: pao2, unit: 'mmHg' } }, carried: [] };
 }
 
-/** A server that knows the open notes only (as the language server does). */
+/** A server that knows the open Pneumark notes only (as the language server does). */
 function server(delays: Record<string, number> = {}) {
   const asked: string[] = [];
   let pao2 = 70;
@@ -20,7 +20,7 @@ function server(delays: Record<string, number> = {}) {
     const { uri } = params as TrendsParams;
     asked.push(uri);
     await new Promise((r) => setTimeout(r, delays[uri] ?? 0));
-    const open = state.documents.some((d) => d.uri.toString() === uri);
+    const open = state.documents.some((d) => d.uri.toString() === uri && d.languageId === 'pneumark');
     const result: TrendsResult | null = open ? { uri, version: 1, points: [point(2, pao2)] } : null;
     return result as R;
   };
@@ -110,6 +110,52 @@ describe('the trend view', () => {
     panel().receive({ type: 'ready' });
     await vi.runAllTimersAsync();
     expect(lastPosted()).toMatchObject({ type: 'trends', closed: true, points: [point(2, 70)] });
+  });
+
+  it('says its note is not open as a Pneumark note once its language mode is changed, rather than that it has no timepoints', async () => {
+    const { send } = server();
+    view = new TrendView(extensionUri, () => send, 10);
+    const editor = openEditor('/work/a.pneu', '@ 08:00');
+    view.show(editor.document as never);
+    await vi.runAllTimersAsync();
+    expect(lastPosted()).toMatchObject({ type: 'trends', points: [point(2, 70)] });
+    // VS Code closes the note and opens it again in the new language: the new document is there
+    // by the time the old one's closing is told.
+    const again = openEditor('/work/a.pneu', '@ 08:00', { languageId: 'plaintext' });
+    closeDocument(editor.document);
+    await vi.runAllTimersAsync();
+    expect(lastPosted()).toEqual({ type: 'notice', uri: 'file:///work/a.pneu', message: 'a.pneu is not open as a Pneumark note: set its language mode to Pneumark to see its trends.' });
+    expect(panel().title).toBe('Trends: a.pneu');
+    // Set back to Pneumark: the note is analysed again, and its trends come back.
+    openEditor('/work/a.pneu', '@ 08:00');
+    closeDocument(again.document);
+    view.noteAnalysed('file:///work/a.pneu');
+    await vi.runAllTimersAsync();
+    expect(lastPosted()).toMatchObject({ type: 'trends', closed: false, points: [point(2, 70)] });
+  });
+
+  it('says its note is not open as a Pneumark note when the language mode of the same document is changed, as VS Code tells it', async () => {
+    const { send } = server();
+    view = new TrendView(extensionUri, () => send, 10);
+    const editor = openEditor('/work/a.pneu', '@ 08:00');
+    view.show(editor.document as never);
+    await vi.runAllTimersAsync();
+    changeLanguage(editor.document, 'plaintext');
+    await vi.runAllTimersAsync();
+    expect(lastPosted()).toEqual({ type: 'notice', uri: 'file:///work/a.pneu', message: 'a.pneu is not open as a Pneumark note: set its language mode to Pneumark to see its trends.' });
+    changeLanguage(editor.document, 'pneumark');
+    await vi.runAllTimersAsync();
+    expect(lastPosted()).toMatchObject({ type: 'trends', closed: false, points: [point(2, 70)] });
+  });
+
+  it('says so when the note it is restored with after a reload opens in another language', async () => {
+    const { send } = server();
+    view = new TrendView(extensionUri, () => send, 10);
+    openEditor('/work/a.pneu', '@ 08:00', { languageId: 'plaintext' });
+    const restored = new FakeWebviewPanel('pneumark.trends', 'Trends: a.pneu', {});
+    await view.deserializeWebviewPanel(restored as never, { uri: 'file:///work/a.pneu' });
+    await vi.runAllTimersAsync();
+    expect(restored.posted.at(-1)).toMatchObject({ type: 'notice', message: expect.stringMatching(/^a\.pneu is not open as a Pneumark note/) });
   });
 
   it('is restored after a reload of the window with the note it showed, opened for the server', async () => {
