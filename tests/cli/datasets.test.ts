@@ -1,7 +1,7 @@
 // The command line over folders of notes: patterns, exclusions, limits, formatting in place,
 // and the same output whatever the parallelism.
 import { spawn, spawnSync } from 'node:child_process';
-import { cpSync, mkdirSync, mkdtempSync, readFileSync, readdirSync, symlinkSync, utimesSync, writeFileSync } from 'node:fs';
+import { cpSync, linkSync, mkdirSync, mkdtempSync, readFileSync, readdirSync, symlinkSync, utimesSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
@@ -61,6 +61,24 @@ describe('finding notes', () => {
     // Each note under the first of its paths in sorted order; the linked note from outside once.
     expect(paths).toEqual(['archive/linked.pneu', 'archive/old.pneu', 'archive/ward-again/three.pneu', 'archive/ward-again/two.pneu']);
     expect(out.out()).toMatch(/5 notes checked/); // the four notes of the folder and the linked one
+  });
+
+  it('checks a note once when it has several names (hard links), under the first in sorted order', async () => {
+    const dir = corpus();
+    linkSync(join(dir, 'ward', 'two.pneu'), join(dir, 'archive', 'two-linked.pneu'));
+    // And a symbolic link to one of the names: the same note again.
+    symlinkSync(join(dir, 'ward', 'two.pneu'), join(dir, 'archive', 'two-symlinked.pneu'), 'file');
+    const out = io(dir);
+    await run(['check', '.'], out);
+    const paths = [...new Set(out.out().split('\n').filter((l) => /\.pneu:\d/.test(l)).map((l) => l.split(':')[0]))];
+    expect(paths).not.toContain('ward/two.pneu');
+    expect(paths).not.toContain('archive/two-symlinked.pneu');
+    expect(out.out()).toMatch(/4 notes checked/); // the four notes of the folder, the linked one once
+    // Exported once too: a dataset does not count its rows twice.
+    const exported = io(dir);
+    await run(['export', '.', '--format', 'jsonl'], exported);
+    const files = new Set(exported.out().trim().split('\n').map((l) => (JSON.parse(l) as { file: string }).file));
+    expect([...files].sort()).toEqual(['archive/old.pneu', 'archive/two-linked.pneu', 'ward/a/one.pneu', 'ward/three.pneu']);
   });
 
   it('says when a pattern matches nothing, and goes on', async () => {

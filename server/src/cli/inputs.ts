@@ -185,20 +185,35 @@ function staticPrefix(pattern: string): string {
 }
 /**
  * Each note once, under the first of its paths in sorted order: a folder reached through a
- * symbolic link (or a note linked into a folder, or named twice) would otherwise be checked and
- * exported again, and a dataset would count its rows twice. A path that cannot be resolved is kept
- * (reading it reports why).
+ * symbolic link (or a note linked into a folder, a note with several names by hard links, or one
+ * named twice) would otherwise be checked and exported again, and a dataset would count its rows
+ * twice. A path that cannot be resolved is kept (reading it reports why).
  */
 function onePathPerNote(paths: readonly string[], cwd: string): string[] {
   const seen = new Set<string>();
   const realFolders = new Map<string, string | null>();
   return paths.filter((path) => {
-    const real = realPath(isAbsolute(path) ? path : join(cwd, path), realFolders);
+    const abs = isAbsolute(path) ? path : join(cwd, path);
+    const real = hardLinked(abs) ?? realPath(abs, realFolders);
     if (real === null) return true;
     if (seen.has(real)) return false;
     seen.add(real);
     return true;
   });
+}
+
+/**
+ * What names a file with more than one name (hard links) whichever name it is reached by: its
+ * device and inode, as the file system numbers them (exact, as big integers); null for a file of
+ * one name, which its real path names, or where the file system gives no inode number.
+ */
+function hardLinked(abs: string): string | null {
+  try {
+    const stats = statSync(abs, { bigint: true });
+    return stats.isFile() && stats.nlink > 1n && stats.ino !== 0n ? `\u0000inode ${stats.dev}:${stats.ino}` : null;
+  } catch {
+    return null;
+  }
 }
 
 /**
