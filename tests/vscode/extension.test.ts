@@ -96,6 +96,16 @@ beforeEach(() => {
   behaviour.startsWhen = null;
 });
 
+/** Activated, with one note open and its trends shown: the view, once it has had them. */
+async function trendsOfOneNote() {
+  await activate(context() as never);
+  openEditor('/work/a.pneu', '@ 08:00\nabg 7.30/40/70/24');
+  state.commands.get('pneumark.showTrends')!();
+  const view = state.panels[0]!;
+  await vi.waitFor(() => expect(view.postedOf('trends')).toHaveLength(1));
+  return view;
+}
+
 describe('activation', () => {
   it('goes on when the server cannot start: the commands are there, and the user is told with a way out', async () => {
     behaviour.startFails = true;
@@ -158,11 +168,7 @@ describe('activation', () => {
   });
 
   it('keeps the trend view waiting while the server restarts after a crash, and never says it is not running', async () => {
-    await activate(context() as never);
-    openEditor('/work/a.pneu', '@ 08:00\nabg 7.30/40/70/24');
-    state.commands.get('pneumark.showTrends')!();
-    const view = state.panels[0]!;
-    await vi.waitFor(() => expect(view.postedOf('trends')).toHaveLength(1));
+    const view = await trendsOfOneNote();
     let started!: () => void;
     behaviour.startsWhen = new Promise<void>((resolve) => { started = resolve; });
     const restarted = clients[0]!.crash();
@@ -179,11 +185,7 @@ describe('activation', () => {
   });
 
   it('tells the trend view the server is not running when it fails to start again after a crash', async () => {
-    await activate(context() as never);
-    openEditor('/work/a.pneu', '@ 08:00\nabg 7.30/40/70/24');
-    state.commands.get('pneumark.showTrends')!();
-    const view = state.panels[0]!;
-    await vi.waitFor(() => expect(view.postedOf('trends')).toHaveLength(1));
+    const view = await trendsOfOneNote();
     let started!: () => void;
     behaviour.startsWhen = new Promise<void>((resolve) => { started = resolve; });
     behaviour.startFails = true;
@@ -197,11 +199,7 @@ describe('activation', () => {
   });
 
   it('tells the trend view the server is not running once it has stopped for good after repeated crashes', async () => {
-    await activate(context() as never);
-    openEditor('/work/a.pneu', '@ 08:00\nabg 7.30/40/70/24');
-    state.commands.get('pneumark.showTrends')!();
-    const view = state.panels[0]!;
-    await vi.waitFor(() => expect(view.postedOf('trends')).toHaveLength(1));
+    const view = await trendsOfOneNote();
     for (let i = 0; i < 5; i++) await clients[0]!.crash();
     expect(clients[0]!.isRunning()).toBe(false);
     openEditor('/work/b.pneu', '@ 09:00\nabg 7.30/40/70/24');
