@@ -56,6 +56,9 @@ export async function activate(context: vscode.ExtensionContext): Promise<void> 
   });
   const status = new TimepointStatus(send);
   context.subscriptions.push(status, trends);
+  // The server stopped (for good after repeated crashes, or to restart) or runs again: the status
+  // item hides at once rather than keep its last figures, and shows the note's again when it runs.
+  context.subscriptions.push(current.onDidChangeState(() => status.schedule()));
   // Registered before the server is started: VS Code hands a trend view restored after a reload
   // (which is what woke the extension up when it was the only editor left open) to the
   // serializer at once, so the view shows its page and opens its note for the server instead of

@@ -61,6 +61,7 @@ class FakeClient {
   /** A server that knows no note but answers for the trends of any (one timepoint). */
   async sendRequest(method: string, params: { uri?: unknown }): Promise<unknown> {
     this.requests.push({ method, uri: params?.uri });
+    if (method === 'pneumark/timepointSummary') return { label: 'start', text: 'P/F 175', tooltip: 'start' };
     if (method !== 'pneumark/trends') return null;
     return { uri: params.uri, version: 1, points: [{ timepoint: 0, label: 'start', line: 0, minutes: 480, values: { pao2: { value: 70, unit: 'mmHg' } }, carried: [] }] };
   }
@@ -204,6 +205,19 @@ describe('activation', () => {
     expect(clients[0]!.isRunning()).toBe(false);
     openEditor('/work/b.pneu', '@ 09:00\nabg 7.30/40/70/24');
     await vi.waitFor(() => expect(view.postedOf('error')).toEqual([{ type: 'error', message: 'the Pneumark language server is not running (run "Pneumark: Restart Language Server")' }]));
+    await deactivate();
+  });
+
+  it('hides the status item once the server has stopped for good, rather than keep its last figures', async () => {
+    await activate(context() as never);
+    openEditor('/work/a.pneu', '@ 08:00\nabg 7.30/40/70/24');
+    const item = state.statusItems[0]!;
+    await vi.waitFor(() => expect(item.visible).toBe(true));
+    expect(item.text).toBe('$(pulse) P/F 175');
+    for (let i = 0; i < 5; i++) await clients[0]!.crash();
+    expect(clients[0]!.isRunning()).toBe(false);
+    // Without a keystroke or a move of the cursor.
+    await vi.waitFor(() => expect(item.visible).toBe(false));
     await deactivate();
   });
 
