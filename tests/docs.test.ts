@@ -5,6 +5,7 @@ import { renderCheckDocs } from '../server/src/core/checks/docs';
 import { CHECKS, docAnchor } from '../server/src/core/checks/registry';
 import { FIELD_TABLE_START, renderFieldTable, replaceBetween, withGeneratedTables } from '../server/src/core/fields/docs';
 import { FIELDS } from '../server/src/core/fields/registry';
+import { SECTIONS } from '../server/src/core/fields/sections';
 import { HB_MMOL_PER_L, UNITS } from '../server/src/core/fields/units';
 import { checkNote } from '../server/src/core/check-note';
 import { formatNote } from '../server/src/core/service';
@@ -51,5 +52,32 @@ describe('check documentation', () => {
   it('has a section per check at its anchor', () => {
     const text = renderCheckDocs();
     for (const c of CHECKS) expect(text).toContain(`<a id="${docAnchor(c)}"></a>`);
+  });
+});
+
+describe('what the documents show a note write gives what they say', () => {
+  it('the documented example of every check raises that check (PN900, an internal error, has none to show)', () => {
+    const silent = CHECKS.filter((c) => c.code !== 'PN900' && !checkNote(c.doc.example).findings.some((f) => f.code === c.code)).map((c) => `${c.code}: ${c.doc.example}`);
+    expect(silent).toEqual([]);
+  });
+
+  it('the EBNF of grammar/README.md names the sections, the words of a note line and the devices the registries know', () => {
+    const doc = readFileSync('grammar/README.md', 'utf8');
+    const ebnf = /```ebnf\n([\s\S]*?)```/.exec(doc)?.[1] ?? '';
+    const quoted = (rule: string): string[] => {
+      const body = new RegExp(`^${rule}\\s+=([\\s\\S]*?);`, 'm').exec(ebnf)?.[1] ?? '';
+      return [...body.replace(/\(\*[\s\S]*?\*\)/g, '').matchAll(/"([^"]+)"/g)].map((m) => m[1]!);
+    };
+    const note = SECTIONS.find((s) => s.kind === 'prose')!;
+    expect(quoted('note-word')).toEqual([note.id, ...note.aliases]);
+    expect(quoted('section')).toEqual(SECTIONS.filter((s) => s.kind !== 'prose').map((s) => s.id));
+    const devices = Object.keys(FIELDS.find((f) => f.id === 'device')!.words ?? {});
+    const listed = quoted('device');
+    expect(listed.length).toBeGreaterThan(5);
+    expect(listed.filter((d) => !devices.includes(d))).toEqual([]);
+    const spellings = UNITS.flatMap((u) => [u.id, ...u.aliases]);
+    const units = quoted('unit');
+    expect(units.length).toBeGreaterThan(5);
+    expect(units.filter((u) => !spellings.includes(u))).toEqual([]);
   });
 });
