@@ -200,6 +200,14 @@ describe('reading units', () => {
     expect(result.findings.filter((f) => f.code === 'PN103')).toHaveLength(3);
   });
 
+  it('does not doubt the unit of such a number (PN204): both readings stay open, as grammar/README.md says, where `vt 1,000` was read as 1.000 mL and L offered', () => {
+    // 1000 mL is an ordinary tidal volume, 1.000 mL is not: the unit is doubted only on the decimal reading.
+    expect(codes('@ 08:00\nvent vt 1,000')).toEqual(['PN103']);
+    expect(codes('@ 08:00\nvent vt 1,200')).toEqual(['PN103']);
+    // A comma that can only be a decimal comma still has its unit doubted: 1.000 L/min of inspiratory flow is 1 L/s mistyped.
+    expect(codes('@ 08:00\nvent flow 1,000')).toEqual(['PN103', 'PN204']);
+  });
+
   it('never drops a critical value as "probably the other unit"": a bare PaO2 of 20–30 mmHg or PaCO2 of 150–200 mmHg is read as written and flagged as unusual (our convention: doubting such values would take them out of the hypoxaemia and hypercapnia readings)', () => {
     const low = checkNote('@ 08:00\noxygen room air\nabg ph 7.20, pco2 60, po2 28, hco3 22.6');
     expect(low.findings.filter((f) => f.severity !== 'information').map((f) => f.code)).toEqual(['PN302']);

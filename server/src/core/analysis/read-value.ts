@@ -214,14 +214,20 @@ export function readItem(item: ItemNode, section: SectionId, line: number, ctx: 
   // `spo2 0.94`: a saturation written as a fraction, not 0.94 %; reported (PN302, with the percentage offered), not used.
   if (usable && value !== null && written !== null && isSaturationFraction(field, written, item)) usable = false;
   // `altitude 1,650 m`: a thousands separator or a decimal comma? Reported by the parser (PN103), used by neither reading.
+  let eitherReading = false;
   if (written !== null && kind === 'number' && item.hasDecimalComma()) {
     const number = item.value;
-    if (number?.kind === 'number' && number.decimalComma && thousandsReading(field, number.text, item.unitText) !== null) usable = false;
+    if (number?.kind === 'number' && number.decimalComma && thousandsReading(field, number.text, item.unitText) !== null) {
+      usable = false;
+      eitherReading = true;
+    }
   }
   // `height 5 ft 10 in`: the feet alone are not the height meant (the inches are reported by the parser, PN105).
   if (readUnit.id === 'ft' && field.id === 'height' && inchesAfterFeet(lineText, item.span.end) !== null) usable = false;
   let unitDoubt: string | null = null;
-  if (unitImplied && value !== null && written !== null) {
+  // Nor is the unit of such a number doubted (PN204): that would take the decimal reading (`vt 1,000`
+  // as 1.000 mL, "in L it would be ordinary") where PN103 offers both and prefers neither.
+  if (unitImplied && value !== null && written !== null && !eitherReading) {
     const likely = otherUnitLikely(field, value, written, readUnit, canonical, ctx);
     if (likely) {
       usable = false;
