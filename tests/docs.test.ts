@@ -4,7 +4,7 @@ import { describe, expect, it } from 'vitest';
 import { renderCheckDocs } from '../server/src/core/checks/docs';
 import { CHECKS, docAnchor } from '../server/src/core/checks/registry';
 import { FIELD_TABLE_START, renderFieldTable, replaceBetween, withGeneratedTables } from '../server/src/core/fields/docs';
-import { FIELDS } from '../server/src/core/fields/registry';
+import { FIELDS, fieldFor, keysInSection } from '../server/src/core/fields/registry';
 import { SECTIONS } from '../server/src/core/fields/sections';
 import { HB_MMOL_PER_L, UNITS } from '../server/src/core/fields/units';
 import { checkNote } from '../server/src/core/check-note';
@@ -79,5 +79,124 @@ describe('what the documents show a note write gives what they say', () => {
     const units = quoted('unit');
     expect(units.length).toBeGreaterThan(5);
     expect(units.filter((u) => !spellings.includes(u))).toEqual([]);
+  });
+});
+
+/**
+ * The note lines grammar/README.md quotes in its prose, with the findings (codes below PN400: the
+ * readings are not what these examples are about) the text says they give. A line quoted as a key
+ * and its value runs on the first section that has the key, or on the line given. Every quoted
+ * line must be here, so a new example is checked too.
+ */
+const SPEC_LINES: Readonly<Record<string, readonly string[] | { readonly on: string; readonly codes: readonly string[] }>> = {
+  'vitals hr 80, rr 18.': ['PN105'],
+  '@ 08:00.': ['PN105'],
+  '@ day 2.': ['PN105'],
+  '@ +2h.': ['PN105'],
+  '@ 08:00 arrived.': [],
+  '@ 08:00, arrival': [],
+  'abg 7.28/56/71/26, be -2': [],
+  'vent mode HFOV, rate 5 Hz, mpaw 25, amplitude 60, fio2 0.6': [],
+  'oxygen niv ipap 18, epap 6': [],
+  'oxygen cpap 8': [],
+  'oxygen venturi 8': [],
+  'oxygen mask, epap 6': ['PN318'],
+  '@ +2h30': [],
+  '@ +2h 30m': ['PN104'],
+  '@ day 2 0800': ['PN104'],
+  'vent peak 15, ve 8': [],
+  'vent vt 480, peak 16': [],
+  'hr 80': [],
+  'hr 118 rr 26': [],
+  'hr 118, rr 26': [],
+  'hr 80 / 90': ['PN105', 'PN105'],
+  'hr 88 120': ['PN105'],
+  'mode VC.': ['PN105'],
+  'hr 80. rr 18': ['PN202'],
+  'hr 80,, rr 18': ['PN105'],
+  'bp 120/80 (93)': [],
+  'bp 120/80 mmHg (93)': [],
+  'bp 120/80 (93 mmHg)': [],
+  'bp 120/80, map 93': [],
+  'bp 120/80(93)': [],
+  'bp 120/80mmHg(93)': [],
+  'bp 120/80 mm Hg(93)': [],
+  'map 12 kPa': ['PN203'],
+  'bp 120/80 (93': ['PN105'],
+  'bp 120/80 (93)x': ['PN105'],
+  'hr 80 (93)': ['PN105'],
+  'bp 120/80, (93)': ['PN105'],
+  'hr 80(93)': ['PN202'],
+  'bp 120': ['PN102'],
+  'bp 120/80/60': ['PN102'],
+  'hr 80/90': ['PN102'],
+  'height 5 ft 10 in': ['PN105'],
+  'altitude 1,650 m': ['PN103'],
+  'vt 1,000': ['PN103'],
+  'ph 7,352': ['PN103'],
+  'hr 1,000': ['PN103', 'PN302'],
+  'mode HFOV': [],
+  'rate 5': { on: 'vent mode HFOV, rate 5', codes: ['PN302'] },
+  'rate 14 Hz': { on: 'vent mode VC, rate 14 Hz', codes: ['PN302'] },
+  'mode PS': [],
+  'mode CPAP': [],
+  'pinsp 18': [],
+  'gas mmHg': [],
+  'gas kPa': [],
+  'vt 450 L': ['PN301'],
+  'vt 5 L': ['PN301'],
+};
+/** Quoted shapes rather than lines: placeholders, or a section word named in a sentence. */
+const SPEC_TEMPLATES = new Set(['@ day N HH:MM', '@ HH:MM', '@ day N', 'units gas']);
+
+describe('the note lines quoted in grammar/README.md', () => {
+  const doc = readFileSync('grammar/README.md', 'utf8');
+  const sectionWords = new Set(SECTIONS.flatMap((s) => [s.id, ...s.aliases]));
+  const keys = new Set(FIELDS.flatMap((f) => f.aliases));
+  const quoted = [...new Set([...doc.matchAll(/`([^`\n]+)`/g)].map((m) => m[1]!))].filter((span) => {
+    if (!/\s/.test(span) && !span.startsWith('@ ')) return false;
+    const first = span.split(/[\s\d(]/)[0]!.toLowerCase();
+    return span.startsWith('@ ') || sectionWords.has(first) || keys.has(first);
+  });
+  const lineOf = (example: string): string => {
+    const entry = SPEC_LINES[example];
+    if (entry && 'on' in entry) return entry.on;
+    const first = example.split(/[\s\d(]/)[0]!.toLowerCase();
+    if (example.startsWith('@') || sectionWords.has(first)) return example;
+    const section = SECTIONS.find((s) => s.kind !== 'prose' && keysInSection(s.id).includes(first));
+    return `${section?.id ?? '?'} ${example}`;
+  };
+  const codesOf = (line: string): string[] => checkNote(line.startsWith('@') ? line : `@ 08:00\n${line}`).findings.filter((f) => f.code < 'PN400').map((f) => f.code).sort();
+
+  it('are each listed here with what the text says they give (add a new one to SPEC_LINES)', () => {
+    expect(quoted.length).toBeGreaterThan(40);
+    expect(quoted.filter((q) => !(q in SPEC_LINES) && !SPEC_TEMPLATES.has(q))).toEqual([]);
+    expect(Object.keys(SPEC_LINES).filter((k) => !quoted.includes(k)), 'an example no longer in the spec').toEqual([]);
+  });
+
+  it('give the findings the text says', () => {
+    const wrong = Object.entries(SPEC_LINES).flatMap(([example, entry]) => {
+      const want = [...('codes' in entry ? entry.codes : entry)].sort();
+      const got = codesOf(lineOf(example));
+      return JSON.stringify(got) === JSON.stringify(want) ? [] : [`${lineOf(example)}: ${got.join(' ') || 'nothing'}, not ${want.join(' ') || 'nothing'}`];
+    });
+    expect(wrong).toEqual([]);
+  });
+
+  it('read as the lines the text says they read as', () => {
+    const read = (line: string) => {
+      const t = checkNote(`@ 08:00\n${line}`).analysis.timeline.timepoints[0]!;
+      return ['bp', 'map', 'hr', 'rr'].map((key) => fieldFor('vitals', key)!.id).map((id) => {
+        const s = t.values.get(id)?.stated;
+        return s ? `${id} ${String(s.value ?? s.parts?.join('/'))} ${String(s.usable)}` : `${id} none`;
+      });
+    };
+    const mean = read('vitals bp 120/80, map 93');
+    expect(mean.slice(0, 2)).toEqual(['bp 120/80 true', expect.stringMatching(/ 93 true$/)]);
+    for (const written of ['bp 120/80 (93)', 'bp 120/80 mmHg (93)', 'bp 120/80 (93 mmHg)', 'bp 120/80(93)', 'bp 120/80mmHg(93)', 'bp 120/80 mm Hg(93)', 'bp 120/80 ( 93 )']) {
+      expect(read(`vitals ${written}`), written).toEqual(mean);
+    }
+    expect(read('vitals hr 118 rr 26')).toEqual(read('vitals hr 118, rr 26'));
+    expect(read('vitals hr 80, rr 18.')).toEqual(read('vitals hr 80, rr 18'));
   });
 });
