@@ -61,6 +61,16 @@ describe('what the documents show a note write gives what they say', () => {
     expect(silent).toEqual([]);
   });
 
+  it("the note lines a check's fix quotes (`oxygen niv epap 6, fio2 0.5`) give no finding of the format, units or plausibility", () => {
+    const sectionWords = new Set(SECTIONS.flatMap((s) => [s.id, ...s.aliases]));
+    const lines = CHECKS.flatMap((c) => [...c.doc.fix.matchAll(/`([^`\n]+)`/g)].map((m) => ({ code: c.code, line: m[1]! })))
+      .filter(({ line }) => /\s/.test(line) && (/^@ (?:day \d|\d|\+)/.test(line) || sectionWords.has(line.split(/\s/)[0]!.toLowerCase())));
+    expect(lines.length).toBeGreaterThan(10);
+    const noisy = lines.map(({ code, line }) => ({ code, line, found: checkNote(line.startsWith('@') ? line : `@ 08:00\n${line}`).findings.filter((f) => f.code < 'PN400').map((f) => f.code) }))
+      .filter((x) => x.found.length > 0).map((x) => `${x.code}: ${x.line} gives ${x.found.join(' ')}`);
+    expect(noisy).toEqual([]);
+  });
+
   it('the EBNF of grammar/README.md names the sections, the words of a note line and the devices the registries know', () => {
     const doc = readFileSync('grammar/README.md', 'utf8');
     const ebnf = /```ebnf\n([\s\S]*?)```/.exec(doc)?.[1] ?? '';
