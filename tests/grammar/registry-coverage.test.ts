@@ -76,3 +76,18 @@ describe('the grammar knows the registries', () => {
     expect(await misses(cases)).toEqual([]);
   });
 });
+
+describe('grammar/README.md names the scopes of the grammar', () => {
+  it('every scope the grammar gives, and none it does not', async () => {
+    const { readFileSync } = await import('node:fs');
+    const grammar = readFileSync('grammar/pneumark.tmLanguage.json', 'utf8');
+    const spec = readFileSync('grammar/README.md', 'utf8');
+    const given = new Set([...grammar.matchAll(/"name": *"([^"]+)"/g)].flatMap((m) => m[1]!.split(' ')).filter((n) => n.endsWith('.pneumark')).map((n) => n.slice(0, -'.pneumark'.length)));
+    const lineScopes = SECTIONS.map((s) => `meta.line.${s.id}`);
+    for (const l of lineScopes) expect(given, l).toContain(l);
+    const named = new Set([...spec.matchAll(/`((?:meta|keyword|variable|constant|entity|string|comment|punctuation|invalid)\.[a-z0-9.<>-]+)`/g)].map((m) => m[1]!));
+    expect([...given].filter((n) => !lineScopes.includes(n) && !named.has(n)), 'given and not named').toEqual([]);
+    expect(named).toContain('meta.line.<section>');
+    expect([...named].filter((n) => n !== 'meta.line.<section>' && !given.has(n)), 'named and not given').toEqual([]);
+  });
+});
