@@ -319,3 +319,14 @@ describe('formulas with their numbers read true', () => {
     expect(checked).toBeGreaterThanOrEqual(8);
   });
 });
+
+describe('blood pressures in a kPa note (README: no gas pressures, they stay in mmHg)', () => {
+  it('the pair, a mean stated with `map` and a measured mean in brackets hover in mmHg only', () => {
+    for (const marked of ['units gas kPa\n@ 08:00\nvitals bp 12|0/80', 'units gas kPa\n@ 08:00\nvitals bp 120/80, map 9|3', 'units gas kPa\n@ 08:00\nvitals bp 120/80 (9|3)', 'units gas kPa\n@ 08:00\nvitals bp 120/80 mm Hg(9|3)']) {
+      const { result, position } = noteAt(marked);
+      const value = /Value: \*\*([^*]+)\*\*(.*)/.exec(hoverAt(result, position)?.markdown ?? '');
+      expect(value?.[1], marked).toMatch(/ mmHg$/);
+      expect(value?.[2] ?? '', marked).not.toContain('kPa');
+    }
+  });
+});
