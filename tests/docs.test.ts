@@ -71,6 +71,15 @@ describe('what the documents show a note write gives what they say', () => {
     expect(noisy).toEqual([]);
   });
 
+  it('grammar/README.md lists the prefixes of every snippet in grammar/snippets.json, and no other', () => {
+    const doc = readFileSync('grammar/README.md', 'utf8');
+    const bullet = /- Snippets \(prefixes\): ([\s\S]*?)\.\n/.exec(doc)?.[1] ?? '';
+    const listed = bullet.split(/,\s*/).map((group) => [...group.matchAll(/`([^`]+)`/g)].map((m) => m[1]!));
+    const snippets = JSON.parse(readFileSync('grammar/snippets.json', 'utf8')) as Record<string, { prefix: string | string[] }>;
+    const prefixes = Object.values(snippets).map((s) => [s.prefix].flat());
+    expect(listed).toEqual(prefixes);
+  });
+
   it('the EBNF of grammar/README.md names the sections, the words of a note line and the devices the registries know', () => {
     const doc = readFileSync('grammar/README.md', 'utf8');
     const ebnf = /```ebnf\n([\s\S]*?)```/.exec(doc)?.[1] ?? '';
