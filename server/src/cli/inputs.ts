@@ -13,7 +13,7 @@
  * on; inputs that hold no note at all give a one-line problem too, so a run pointed at the wrong
  * folder does not pass.
  */
-import { closeSync, constants, existsSync, fstatSync, lstatSync, openSync, readdirSync, readlinkSync, readSync, realpathSync, statSync, type Stats } from 'node:fs';
+import { closeSync, constants, existsSync, fstatSync, lstatSync, openSync, readdirSync, readlinkSync, readSync, realpathSync, statSync, type BigIntStats, type Stats } from 'node:fs';
 import { isUtf8 } from 'node:buffer';
 import { basename, dirname, isAbsolute, join, normalize, relative, resolve, sep } from 'node:path';
 import ignore, { type Ignore } from 'ignore';
@@ -193,8 +193,7 @@ function onePathPerNote(paths: readonly string[], cwd: string): string[] {
   const seen = new Set<string>();
   const realFolders = new Map<string, string | null>();
   return paths.filter((path) => {
-    const abs = isAbsolute(path) ? path : join(cwd, path);
-    const real = hardLinked(abs) ?? realPath(abs, realFolders);
+    const real = noteIdentity(isAbsolute(path) ? path : join(cwd, path), realFolders);
     if (real === null) return true;
     if (seen.has(real)) return false;
     seen.add(real);
@@ -207,33 +206,34 @@ function onePathPerNote(paths: readonly string[], cwd: string): string[] {
  * device and inode, as the file system numbers them (exact, as big integers); null for a file of
  * one name, which its real path names, or where the file system gives no inode number.
  */
-function hardLinked(abs: string): string | null {
-  try {
-    const stats = statSync(abs, { bigint: true });
-    return stats.isFile() && stats.nlink > 1n && stats.ino !== 0n ? `\u0000inode ${stats.dev}:${stats.ino}` : null;
-  } catch {
-    return null;
-  }
+function inodeName(stats: BigIntStats): string | null {
+  return stats.isFile() && stats.nlink > 1n && stats.ino !== 0n ? `\u0000inode ${stats.dev}:${stats.ino}` : null;
 }
 
 /**
- * `realpath` of a file, null when it cannot be resolved. A file that is not itself a symbolic link
- * is where its folder really is, under its own name: the folder is resolved once for all its notes
+ * What names a note whichever path reaches it: its device and inode when it has several names
+ * (`inodeName`), else its `realpath`; null when it cannot be resolved. A file that is not itself a
+ * symbolic link is where its folder really is, under its own name: the folder is resolved once for all its notes
  * (`realFolders`) and the file costs one `lstat`, where resolving each path walks every folder
  * above it again (a system call per folder, per note).
  */
-function realPath(abs: string, realFolders: Map<string, string | null>): string | null {
+function noteIdentity(abs: string, realFolders: Map<string, string | null>): string | null {
   const name = basename(abs);
   let link = true;
   if (name !== '' && name !== '.' && name !== '..') {
     try {
-      link = lstatSync(abs).isSymbolicLink();
+      const stats = lstatSync(abs, { bigint: true });
+      link = stats.isSymbolicLink();
+      if (!link) {
+        const inode = inodeName(stats);
+        if (inode !== null) return inode;
+      }
     } catch {
       link = true;
     }
   }
   try {
-    if (link) return realpathSync.native(abs);
+    if (link) return inodeName(statSync(abs, { bigint: true })) ?? realpathSync.native(abs);
     const folder = dirname(abs);
     let real = realFolders.get(folder);
     if (real === undefined) {
