@@ -35,14 +35,6 @@ export async function activate(context: vscode.ExtensionContext): Promise<void> 
   const settingsChanges = pneumarkSettingsOnly();
   context.subscriptions.push(output, trace, settingsChanges);
   client = createClient(output, trace, crashes, settingsChanges.middleware, context.asAbsolutePath('dist/server.js'));
-  const current = client;
-  context.subscriptions.push(current.onDidChangeState((e) => {
-    // Out of the start: running again, failed to start, or stopped while starting.
-    if (crashRestart && e.oldState === State.Starting) {
-      crashRestart();
-      crashRestart = null;
-    }
-  }));
   // Requests go to the server only while it runs (not while it starts, stops or is stopped).
   const send = (): Requester | null => {
     const c = client;
@@ -56,9 +48,16 @@ export async function activate(context: vscode.ExtensionContext): Promise<void> 
   });
   const status = new TimepointStatus(send);
   context.subscriptions.push(status, trends);
-  // The server stopped (for good after repeated crashes, or to restart) or runs again: the status
-  // item hides at once rather than keep its last figures, and shows the note's again when it runs.
-  context.subscriptions.push(current.onDidChangeState(() => status.schedule()));
+  context.subscriptions.push(client.onDidChangeState((e) => {
+    // Out of the start after a crash: running again, failed to start, or stopped while starting.
+    if (crashRestart && e.oldState === State.Starting) {
+      crashRestart();
+      crashRestart = null;
+    }
+    // Stopped (for good after repeated crashes, or to restart) or running again: the status item
+    // hides at once rather than keep its last figures, and shows the note's again when it runs.
+    status.schedule();
+  }));
   // Registered before the server is started: VS Code hands a trend view restored after a reload
   // (which is what woke the extension up when it was the only editor left open) to the
   // serializer at once, so the view shows its page and opens its note for the server instead of
