@@ -1,7 +1,7 @@
 // The command line over folders of notes: patterns, exclusions, limits, formatting in place,
 // and the same output whatever the parallelism.
 import { spawn, spawnSync } from 'node:child_process';
-import { cpSync, linkSync, mkdirSync, mkdtempSync, readFileSync, readdirSync, symlinkSync, utimesSync, writeFileSync } from 'node:fs';
+import { closeSync, cpSync, linkSync, mkdirSync, mkdtempSync, openSync, readFileSync, readdirSync, symlinkSync, utimesSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
@@ -272,6 +272,28 @@ describe('a reader that stops early', () => {
     const code = await new Promise<number | null>((resolve) => child.on('close', resolve));
     expect(code).toBe(2);
     expect(err).toBe('');
+  });
+});
+
+describe('standard output that cannot be written', () => {
+  // A full disk (`> out.csv` on a full file system; Linux's /dev/full fails every write with
+  // ENOSPC). Exit code 1 would read as "notes with error findings", which a dataset with a broken
+  // note always gives, so a pipeline would take a cut-off file for a whole one.
+  it('says so in one line on standard error and ends with exit code 2, never a stack trace (built command)', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'pneumark-full-'));
+    writeFileSync(join(dir, 'a.pneu'), '@ 08:00\nvitals hr 80\nabg 7.40/40/90/24\n');
+    writeFileSync(join(dir, 'b.pneu'), '@ 08:00\nvitlas hr 80\n');
+    const cli = join(process.cwd(), 'dist/cli.js');
+    for (const args of [['export', '--format', 'csv', '.'], ['export', '--format', 'jsonl', '.'], ['export', '--format', 'fhir', '.'], ['check', '--format', 'json', '.'], ['check', '.']]) {
+      const full = openSync('/dev/full', 'w');
+      try {
+        const r = spawnSync(process.execPath, [cli, ...args], { cwd: dir, stdio: ['ignore', full, 'pipe'], encoding: 'utf8', env: { ...process.env, NO_COLOR: '1' } });
+        expect(r.stderr, args.join(' ')).toMatch(/^pneumark: could not write to standard output \(ENOSPC\): the output is incomplete\n$/);
+        expect(r.status, args.join(' ')).toBe(2);
+      } finally {
+        closeSync(full);
+      }
+    }
   });
 });
 

@@ -43,7 +43,8 @@ that matches nothing; in check, show and export, a note that is empty or has onl
 standard input with nothing piped in is), a note that could not be read, or analysed in the memory
 one note is given, or that fmt --write would not rewrite, a folder below those named that cannot
 be listed, an invalid pneumark.config.json (one line per problem on standard error; the run goes
-on with the defaults for that file), or standard output closed early (e.g. by head).
+on with the defaults for that file), or standard output closed early (e.g. by head) or not writable
+(a full disk).
 
 ${CAUTION}`,
   show: `Usage: pneumark show FILE

@@ -235,10 +235,12 @@ if (!isMainThread && (workerData as { pneumarkWorker?: boolean } | null)?.pneuma
   workerMain();
 } else if (require.main === module) {
   // A reader that stops early (`| head`) closes the pipe: stop at once and quietly, as other
-  // command-line tools do, with the exit code of an I/O error.
+  // command-line tools do, with the exit code of an I/O error. Any other failure to write (a full
+  // disk, ENOSPC) leaves the output cut off: one line says so, with the same exit code, since 1
+  // would read as "error findings", which a folder with one broken note always gives.
   process.stdout.on('error', (error: NodeJS.ErrnoException) => {
-    if (error.code === 'EPIPE') process.exit(EXIT.usage);
-    throw error;
+    if (error.code !== 'EPIPE') process.stderr.write(`pneumark: could not write to standard output (${error.code ?? error.message}): the output is incomplete\n`);
+    process.exit(EXIT.usage);
   });
   void run(process.argv.slice(2), {
     cwd: process.cwd(),
