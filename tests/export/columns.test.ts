@@ -2,7 +2,7 @@
 // two options (redactProse, shiftDays).
 import { UcumLhcUtils } from '@lhncbc/ucum-lhc';
 import { describe, expect, it } from 'vitest';
-import { exportColumns, findingsByTimepoint, findingsOfTimepoint, RANGE_DERIVED_IDS, timepointRows, unitSlug, type Row } from '../../server/src/core/export';
+import { exportColumns, findingsByTimepoint, findingsOfTimepoint, RANGE_DERIVED_IDS, timepointRows, toFhirBundle, unitSlug, type Row } from '../../server/src/core/export';
 import { allDerivations } from '../../server/src/core/analysis/analyse';
 import { DERIVED } from '../../server/src/core/derive/registry';
 import { FIELDS } from '../../server/src/core/fields/registry';
@@ -66,6 +66,34 @@ describe('the column list', () => {
       if (c.type === 'number' && c.kind !== 'summary' && c.name !== 'timepoint' && c.name !== 'day') expect(c.ucum, c.name).not.toBeNull();
       if (c.ucum !== null) expect(ucum.validateUnitString(c.ucum, true).status, `${c.name}: ${c.ucum}`).toBe('valid');
     }
+  });
+});
+
+describe('the unit a column names for people', () => {
+  it('is the unit the FHIR export writes for the same field: °C and pH, not C (the coulomb\'s symbol) and ph', () => {
+    const note = [
+      'patient   age 40 y, height 170 cm, weight 70 kg',
+      '@ 08:00',
+      'vitals    hr 80, rr 14, spo2 97 %, temp 99.5 F, bp 120/80, etco2 38, co 5',
+      'vent      mode VC, vt 450, rate 14, peep 5, fio2 0.4, plateau 18, peak 24, flow 50, map 10',
+      'abg       7.40/40/90/24, be 0, sao2 97 %, hb 14, lactate 1.1',
+      'vbg       ph 7.36, pco2 46, po2 40, hco3 25, svo2 70 %',
+      'labs      na 140, k 4, cl 104, hco3 24, albumin 4, glucose 5.5',
+      '',
+    ].join('\n');
+    const bundle = toFhirBundle('note.pneu', checked(note), { redactProse: false, shiftDays: 0 });
+    const byField = new Map(exportColumns().filter((c) => c.kind === 'field' && c.section === null && c.part === null).map((c) => [c.source, c]));
+    const compared: string[] = [];
+    for (const entry of bundle.entry ?? []) {
+      const fieldId = /^obs-(?:\d+|header)-(.+)$/.exec(entry.resource.id)?.[1]?.replace(/-/g, '_');
+      const column = fieldId === undefined ? undefined : byField.get(fieldId);
+      const quantity = entry.resource.valueQuantity;
+      if (!column || !quantity) continue;
+      expect(column.unit, column.name).toBe(quantity.unit);
+      compared.push(column.name);
+    }
+    expect(compared).toEqual(expect.arrayContaining(['temp_C', 'ph_pH', 'ph_venous_pH', 'paco2_mmHg', 'fio2_fraction', 'spo2_pct', 'hb_g_dL']));
+    expect(compared.length).toBeGreaterThan(30);
   });
 });
 

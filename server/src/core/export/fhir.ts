@@ -352,14 +352,11 @@ function timepointNote(tp: Timepoint, written: string | null, options: FhirOptio
 
 const finite = (value: number | null | undefined): value is number => value !== null && value !== undefined && Number.isFinite(value);
 
-/** How a unit is written for people in a Quantity where the note's spelling would mislead (`C` is the coulomb's symbol). */
-const UNIT_TEXT: Readonly<Record<string, string>> = { ph: 'pH', C: '°C', F: '°F' };
-
 function quantity(value: number, unitId: string): FhirQuantity | null {
   const unit = unitById(unitId);
   const exported = exportedNumber(value);
   if (!unit || exported === null) return null;
-  return { value: exported, unit: UNIT_TEXT[unitId] ?? unitForPeople(unitId) ?? unit.id, system: UCUM, code: unit.ucum };
+  return { value: exported, unit: unitForPeople(unitId) ?? unit.id, system: UCUM, code: unit.ucum };
 }
 
 function categoryOf(category: ObservationCategory | null): { category?: readonly FhirCodeableConcept[] } {

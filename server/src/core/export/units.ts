@@ -38,7 +38,13 @@ export function ucumCode(unitId: string): string | null {
   return unitById(unitId)?.ucum ?? DERIVED_UCUM[unitId] ?? null;
 }
 
-/** How a unit is written for people (`%sat` → `%`); null for a dimensionless value. */
+/** Where a unit id would mislead a reader of the exports: `C` is the coulomb's symbol, `ph` no unit's. */
+const FOR_PEOPLE: Readonly<Record<string, string>> = { ph: 'pH', C: '°C', F: '°F' };
+
+/**
+ * How a unit is written for people in the exports (`%sat` → `%`, `C` → `°C`, `ph` → `pH`): the
+ * unit of a column in README's table and of a FHIR Quantity; null for a dimensionless value.
+ */
 export function unitForPeople(unitId: string): string | null {
-  return unitId === '' ? null : displayUnit(unitId);
+  return unitId === '' ? null : FOR_PEOPLE[unitId] ?? displayUnit(unitId);
 }
