@@ -8,6 +8,7 @@ import { DERIVED } from '../../server/src/core/derive/registry';
 import { FIELDS } from '../../server/src/core/fields/registry';
 import { fixtureFiles } from '../helpers/expectations';
 import { checked, samples } from './helpers';
+import { renderColumnTable } from '../../server/src/core/export/docs';
 
 const plain = { redactProse: false, shiftDays: 0 } as const;
 /** 1 kPa in mmHg: 1000 Pa ÷ 133.322387415 Pa (NIST SP 811). */
@@ -94,6 +95,36 @@ describe('the unit a column names for people', () => {
     }
     expect(compared).toEqual(expect.arrayContaining(['temp_C', 'ph_pH', 'ph_venous_pH', 'paco2_mmHg', 'fio2_fraction', 'spo2_pct', 'hb_g_dL']));
     expect(compared.length).toBeGreaterThan(30);
+  });
+});
+
+describe('derived columns in rows where nothing they rest on is stated', () => {
+  const note = [
+    'patient   age 60 y, sex male, height 175 cm',
+    'place     altitude 1500 m',
+    '@ day 1 08:00',
+    'vent      mode VC, vt 450, rate 14, peep 8, fio2 0.5',
+    'abg       7.40/40/90/24',
+    '@ 10:00',
+    'vent      fio2 0.4',
+    '',
+  ].join('\n');
+
+  it('are empty, as the editor shows them only where one of their main inputs is stated; README says so', () => {
+    const [first, second] = rowsOf(note);
+    // At 08:00 a PaO2 and a tidal volume are stated: the barometric pressure and the predicted body weight are given.
+    expect(first?.barometric_derived_mmHg).toEqual(expect.any(Number));
+    expect(first?.predicted_body_weight_kg).toEqual(expect.any(Number));
+    // At 10:00 only the FiO2 is: its PiO2 is given, computed with the same pressure, which its row leaves empty.
+    const pb = first!.barometric_derived_mmHg as number;
+    // PiO2 = FiO2 × (PB − 47 mmHg): common practice, no source (REFERENCES.md, "Atmosphere and inspired oxygen").
+    expect(second?.pio2_mmHg as number).toBeCloseTo(0.4 * (pb - 47), 9);
+    expect(second?.barometric_derived_mmHg).toBeNull();
+    expect(second?.predicted_body_weight_kg).toBeNull();
+    // What a reader of README's column table is told, beside "empty when unknown or not usable".
+    const intro = renderColumnTable().replace(/\s+/g, ' ');
+    expect(intro).toContain('A derived value is in the rows of the timepoints where Pneumark reports it');
+    expect(intro).toContain('`barometric_derived_mmHg` is given where a PaO2 or a place line is stated, not in every row whose `pio2_mmHg` used it');
   });
 });
 
