@@ -1,5 +1,6 @@
 // The column model of the tabular exports: the pinned list of names, what a cell holds, and the
 // two options (redactProse, shiftDays).
+import { readFileSync } from 'node:fs';
 import { UcumLhcUtils } from '@lhncbc/ucum-lhc';
 import { describe, expect, it } from 'vitest';
 import { exportColumns, findingsByTimepoint, findingsOfTimepoint, RANGE_DERIVED_IDS, timepointRows, toFhirBundle, unitSlug, type Row } from '../../server/src/core/export';
@@ -338,6 +339,15 @@ describe('cells', () => {
     // With an `@` first, the header's findings belong to no row either.
     const explicit = checked('patient age 50, qq 3\n@ day 1 08:00\nvitals hr 80 zz 4');
     expect(timepointRows('b.pneu', explicit, plain).map((x) => x.findings_errors)).toEqual([1]);
+  });
+
+  it('leave out a finding on a line before the first `@` where no timepoint starts (a misspelt section after the header); README says so', () => {
+    const result = checked('patient age 40\nvitlas hr 80\n@ day 1 08:00\nvitals hr 90, spo2 104');
+    expect(result.findings.map((f) => [f.code, f.range.start.line + 1])).toEqual([['PN101', 2], ['PN306', 4]]);
+    expect(timepointRows('c.pneu', result, plain).map((x) => x.findings_errors)).toEqual([1]);
+    expect(findingsByTimepoint(result).map((list) => list.map((f) => f.range.start.line + 1))).toEqual([[4]]);
+    const readme = readFileSync('README.md', 'utf8').replace(/\s+/g, ' ');
+    expect(readme).toContain('Findings on header lines belong to no timepoint, nor do those on lines before the first `@` where no timepoint starts');
   });
 });
 
