@@ -397,6 +397,18 @@ describe('a ventilated note (codes of the MII ICU module)', () => {
     expect(validator.validate(b, true)).toEqual([]);
     for (const resource of observations(b)) expect(validator.validate(resource, true), resource.id).toEqual([]);
   });
+
+  it('a mean airway pressure set in HFOV is a setting: therapy, without the code measured on the ventilator (76530-5); measured under VC it keeps both', () => {
+    // In HFOV the oscillator is set to a mean airway pressure, which the timeline holds and carries
+    // as a setting (grammar/README.md; the field's description), so a code that names a reading does not fit it.
+    const hfov = toFhirBundle('h.pneu', checked('@ 08:00\nvent mode HFOV, rate 5 Hz, map 22, amplitude 40, fio2 0.6\n@ 09:00\nvent mode VC, vt 420, rate 16, peep 8, map 14'), noAnchor);
+    expect(byId(hfov, 'obs-0-mean-airway-pressure')?.code).toEqual({ text: 'Mean airway pressure' });
+    expect(byId(hfov, 'obs-0-mean-airway-pressure')?.category?.[0]?.coding?.[0]?.code).toBe('therapy');
+    expect(byId(hfov, 'obs-0-mean-airway-pressure')?.valueQuantity?.value).toBe(22);
+    expect(byId(hfov, 'obs-1-mean-airway-pressure')?.code.coding?.[0]?.code).toBe('76530-5');
+    expect(byId(hfov, 'obs-1-mean-airway-pressure')?.category).toBeUndefined();
+    expect(validator.validate(hfov, true)).toEqual([]);
+  });
 });
 
 describe('categories', () => {

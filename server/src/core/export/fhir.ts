@@ -39,7 +39,9 @@
  *   NIV or CPAP of an oxygen line (`noninvasiveSupport`: by its device, or with none named, its
  *   pressures; the rule by which the timeline reads that volume as measured);
  * - a code whose name says `setting` never on a reading (plateau, peak, mean airway pressure,
- *   minute volume, end-tidal CO2), nor one measured `--on ventilator` on a setting.
+ *   minute volume, end-tidal CO2), nor one measured `--on ventilator` on a setting: a mean airway
+ *   pressure set in HFOV, which the timeline holds as a setting, is exported without 76530-5 and
+ *   in the therapy category.
  * A value whose field has no code, or whose code does not fit, is still exported, with `code.text`
  * alone and no coding: a wrong code is worse than none. A code marked `fromMemory` in the registry
  * was recalled, not read from the LOINC table; the others name in `source` the page they were read
@@ -58,7 +60,8 @@
  * CPAP, which have no code) and
  * none for what is read off the ventilator (plateau, peak and mean airway pressure, minute volume:
  * the mechanics of the ventilated lung as the machine measures them, neither a setting nor one of
- * FHIR's vital signs, and their codes name measurements `--on ventilator`); patient → vital-signs
+ * FHIR's vital signs, and their codes name measurements `--on ventilator`; but the mean airway
+ * pressure set in HFOV, a setting there, is therapy); patient → vital-signs
  * for height and weight (both belong to FHIR's vital-signs set), no category for age. A field has
  * one category whatever its line: sodium, potassium, chloride, glucose and lactate are laboratory
  * values on a blood gas line too, and end-tidal CO2 (first in vitals) is vital-signs on a vent line
@@ -190,14 +193,18 @@ const CATEGORY_OF_SECTION: Readonly<Record<SectionId, ObservationCategory | null
   note: null,
 };
 
-/** The observation category of a field (see the header comment); null for none. */
-export function observationCategory(field: FieldDef): ObservationCategory | null {
+/**
+ * The observation category of a field (see the header comment); null for none. `reading` says
+ * whether the value is read off the device, where that differs from its field (a mean airway
+ * pressure set in HFOV is a setting: therapy).
+ */
+export function observationCategory(field: FieldDef, reading: boolean = field.reading === true): ObservationCategory | null {
   if (field.id === 'age') return null;
   const section = field.sections[0];
   const category = section ? CATEGORY_OF_SECTION[section] : null;
   // Plateau, peak and mean airway pressure, minute volume: read off the ventilator, not a setting.
   // End-tidal CO2 is first in vitals, so it is vital-signs on a vent line too (see the header comment).
-  return category === 'therapy' && field.reading ? null : category;
+  return category === 'therapy' && reading ? null : category;
 }
 
 /** Sections whose numbers are exported as Observations (see the header comment). */
@@ -219,6 +226,11 @@ export interface WrittenAs {
   readonly mode: string | null;
   /** The non-invasive support in force at the timepoint (`noninvasiveSupport`: by the device, or with none named, its pressures). */
   readonly support: NoninvasiveSupport | null;
+  /**
+   * Whether the value is a reading off the device, where the timeline reads it otherwise than its
+   * field (a mean airway pressure set in HFOV is held as a setting); left out: as its field says.
+   */
+  readonly reading?: boolean;
 }
 
 const NOTHING_MORE: WrittenAs = { key: null, device: null, mode: null, support: null };
@@ -240,12 +252,13 @@ const NOT_SET_UNDER: ReadonlyMap<string, { readonly what: string; readonly modes
 export function loincMismatch(loinc: LoincCode, field: FieldDef, section: SectionId, written: WrittenAs = NOTHING_MORE): string | null {
   const name = loinc.display;
   const device = written.device;
+  const reading = written.reading ?? field.reading === true;
   // `tco2` is total CO2 (bicarbonate plus dissolved CO2 and carbamino CO2), which LOINC codes apart from bicarbonate.
   if (/^Bicarbonate\b/.test(name) && written.key === 'tco2') return `${loinc.code} is bicarbonate, the value was written as total CO2 (tco2)`;
   if (/^Carbon dioxide, total\b/.test(name) && written.key !== null && written.key !== 'tco2') return `${loinc.code} is total CO2, the value was written as ${written.key}`;
   // A setting is what the clinician chose, a reading what was measured: neither code fits the other.
-  if (/\bsetting\b/.test(name) && field.reading === true) return `${loinc.code} is a setting, the value is a reading`;
-  if (/--on ventilator\b/.test(name) && field.reading !== true) return `${loinc.code} is measured on the ventilator, the value is a setting`;
+  if (/\bsetting\b/.test(name) && reading) return `${loinc.code} is a setting, the value is a reading`;
+  if (/--on ventilator\b/.test(name) && !reading) return `${loinc.code} is measured on the ventilator, the value is a setting`;
   // A volume or a flow written under a mode that sets none was delivered, so it was measured.
   const notSet = NOT_SET_UNDER.get(field.id);
   // Under NIV or CPAP with no ventilator mode, a tidal volume is one the device measured (a vent line of readings).
@@ -378,14 +391,16 @@ interface Place {
 
 /** The Observation of one stated value; null when the field is not exported or has no usable number. */
 function fieldObservation(field: FieldDef, input: InputValue, place: Place): Omit<FhirObservation, 'id'> | null {
+  // A reading field's value held as a setting (a mean airway pressure set in HFOV) is a setting here.
+  const reading = field.reading === true && input.stated.hereOnly;
   // A ventilator's FiO2, a blood gas sodium, a value written as tco2 have codes of their own; a code that does not fit is left out.
-  const loinc = fhirLoinc(field, input.stated.section, { key: input.stated.item.keyName, device: place.device, mode: place.mode, support: place.support });
+  const loinc = fhirLoinc(field, input.stated.section, { key: input.stated.item.keyName, device: place.device, mode: place.mode, support: place.support, reading });
   const unitId = input.stated.unit;
   if (!isObservedField(field) || !input.stated.usable || unitId === null) return null;
   const base = {
     resourceType: 'Observation' as const,
     status: 'final' as const,
-    ...categoryOf(observationCategory(field)),
+    ...categoryOf(observationCategory(field, reading)),
     code: { ...(loinc ? { coding: [{ system: LOINC, code: loinc.code, display: loinc.display }] } : {}), text: field.label },
     ...(place.effective ? { effectiveDateTime: place.effective } : {}),
   };
