@@ -347,7 +347,7 @@ describe('cells', () => {
     expect(timepointRows('c.pneu', result, plain).map((x) => x.findings_errors)).toEqual([1]);
     expect(findingsByTimepoint(result).map((list) => list.map((f) => f.range.start.line + 1))).toEqual([[4]]);
     const readme = readFileSync('README.md', 'utf8').replace(/\s+/g, ' ');
-    expect(readme).toContain('Findings on header lines belong to no timepoint, nor do those on lines before the first `@` where no timepoint starts');
+    expect(readme.includes('Findings on header lines belong to no timepoint, nor do those on lines before the first `@` where no timepoint starts'), 'README.md says so').toBe(true);
   });
 });
 

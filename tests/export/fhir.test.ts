@@ -1,5 +1,6 @@
 // FHIR R4: every Bundle and every Observation validates against the R4 JSON schema; stated
 // values only, LOINC and UCUM codes from the registries, times from an anchor.
+import { readFileSync } from 'node:fs';
 import { UcumLhcUtils } from '@lhncbc/ucum-lhc';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { anchorProblem, observationCategory, toFhirBundle, ucumCode, type FhirBundle, type FhirObservation, type FhirOptions } from '../../server/src/core/export';
@@ -126,6 +127,16 @@ describe('observations', () => {
     // Timepoint 2 uses the FiO2 carried from timepoint 1: the reference points there.
     const urlOf = (id: string) => bundle.entry?.find((e) => e.resource.id === id)?.fullUrl;
     expect(pf.derivedFrom).toEqual([{ reference: urlOf('obs-2-pao2') }, { reference: urlOf('obs-1-fio2') }]);
+  });
+
+  it('P/F ratio on room air: derived from the PaO2 alone, since the FiO2 of 0.21 the device implies is no Observation; README says so', () => {
+    const b = toFhirBundle('a.pneu', checked('@ 08:00\noxygen room air\nabg 7.40/40/84/24'), noAnchor);
+    const urlOf = (id: string) => b.entry?.find((e) => e.resource.id === id)?.fullUrl;
+    expect(byId(b, 'obs-0-pf-ratio')?.valueQuantity?.value).toBe(400); // 84 / 0.21
+    expect(byId(b, 'obs-0-pf-ratio')?.derivedFrom).toEqual([{ reference: urlOf('obs-0-pao2') }]);
+    expect(byId(b, 'obs-0-fio2')).toBeUndefined();
+    const readme = readFileSync('README.md', 'utf8').replace(/\s+/g, ' ');
+    expect(readme.includes('on room air, whose FiO2 of 0.21 is implied and no Observation, its PaO2 alone'), 'README.md says so').toBe(true);
   });
 
   it('no other derived value, no subject, no identifier', () => {
