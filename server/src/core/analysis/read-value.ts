@@ -15,7 +15,7 @@ import { nearDevicePhrase } from '../fields/device-phrases';
 import { squeezeBlanks } from '../syntax/blanks';
 import { doubtBoundsAt, softBoundsAt, unitsWithin, within, type BoundsContext } from './bounds';
 import type { StatedValue } from './model';
-import { givesNoSetPressure, supportOfDevice, SUPPORT_PRESSURE_FIELDS } from './noninvasive-support';
+import { givesNoSetPressure, givesPressure, supportOfDevice, SUPPORT_PRESSURE_FIELDS } from './noninvasive-support';
 import type { ReadIssue } from './read-issues';
 
 export interface ReadContext extends BoundsContext {
@@ -351,8 +351,10 @@ function unknownKeyIssue(item: ItemNode, section: SectionId, line: number, lineI
   // unknown key, and is offered the devices it is near.
   const devices = section === 'oxygen' && lineItems[0] === item ? nearDevices(key.text) : [];
   const renamed = endExpiratoryName(key.text, section, lineItems);
-  // Beside a device that gives no set airway pressure, no key of one is offered (it would be PN318).
-  const candidates = section === 'oxygen' && givesNoSetPressure(deviceOfLine(lineItems)) ? keysInSection(section).filter(isNoPressureKey) : keysInSection(section);
+  // No key of a pressure the device does not give is offered (it would be PN318): none beside a
+  // device that gives no set airway pressure, no IPAP or EPAP beside `cpap`, no level beside `niv`.
+  const lineDevice = section === 'oxygen' ? deviceOfLine(lineItems) : null;
+  const candidates = lineDevice !== null ? keysInSection(section).filter((k) => isKeyGiven(k, lineDevice)) : keysInSection(section);
   const elsewhere = FIELDS.filter((f) => f.aliases.includes(key.text.toLowerCase())).flatMap((f) => f.sections);
   // A key of another line is on the wrong line, not misspelt: no key of another quantity is
   // offered for it (`hb` on a vitals line is not the heart rate `hr`), but the line's own name.
@@ -472,10 +474,10 @@ export function deviceOfLine(lineItems: readonly ItemNode[]): string | null {
   return device;
 }
 
-/** Whether a key of an oxygen line names no pressure of NIV or CPAP. */
-function isNoPressureKey(key: string): boolean {
+/** Whether a key of an oxygen line names no pressure of NIV or CPAP, or one that `device` gives. */
+function isKeyGiven(key: string, device: string): boolean {
   const field = fieldFor('oxygen', key);
-  return field === undefined || !SUPPORT_PRESSURE_FIELDS.includes(field.id);
+  return field === undefined || !SUPPORT_PRESSURE_FIELDS.includes(field.id) || givesPressure(device, field.id);
 }
 
 /** A run of words that is near a device of several words but not one: what it reads as, and where. */
