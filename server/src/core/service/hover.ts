@@ -15,7 +15,7 @@ import { derivedDef, withheldByReason } from '../derive/registry';
 import { shortAsName } from '../derive/context';
 import { fieldFor, fieldsInSection, loincFor, type FieldDef } from '../fields/registry';
 import { sectionById, type SectionId } from '../fields/sections';
-import { describeInput, formatAlternative, formatStated, statedInKpa } from '../present';
+import { describeInput, formatAlternative, formatStated, readUnitName, statedInKpa } from '../present';
 import type { SectionLine, TimepointLine } from '../syntax/tree';
 import type { Position } from '../types';
 import { formatNumber, formatShort, wordList } from '../util/format';
@@ -152,7 +152,7 @@ function unitText(result: NoteResult, s: StatedValue, field: FieldDef): string |
       ? `Unit ${code(s.item.unit.text)} does not measure ${escapeMarkdown(field.label)}, which takes ${allowed}.`
       : `Unit ${code(s.item.unit.text)} is not a unit Pneumark knows; ${escapeMarkdown(field.label)} takes ${allowed}.`;
   }
-  const read = s.readUnit === 'fraction' ? 'a fraction' : displayUnit(s.readUnit);
+  const read = s.readUnit === 'fraction' ? 'a fraction' : readUnitName(s);
   if (!s.unitImplied) return `Written in ${escapeMarkdown(read)}.`;
   let why = "the field's default unit";
   if (field.bare === 'gas') {
