@@ -13,6 +13,7 @@ import { formatNumber, wordList } from '../util/format';
 import { closest, editDistance } from '../util/suggest';
 import { nearDevicePhrase } from '../fields/device-phrases';
 import { squeezeBlanks } from '../syntax/blanks';
+import { renameKeepingColumns } from '../syntax/layout';
 import { doubtBoundsAt, softBoundsAt, unitsWithin, within, type BoundsContext } from './bounds';
 import type { StatedValue } from './model';
 import { givesNoSetPressure, givesPressure, supportOfDevice, SUPPORT_PRESSURE_FIELDS } from './noninvasive-support';
@@ -265,7 +266,7 @@ function unknownWordIssue(item: ItemNode, field: FieldDef, line: number, lineIte
       line,
       span: phrase.span,
       message: `\`${phrase.text}\` is not a known value for ${field.label.toLowerCase()}. Did you mean \`${phrase.device}\`?`,
-      fixes: [phraseFix(phrase)],
+      fixes: [phraseFix(phrase, lineText)],
     };
   }
   const near = closest(value.text, Object.keys(field.words ?? {}));
@@ -276,7 +277,7 @@ function unknownWordIssue(item: ItemNode, field: FieldDef, line: number, lineIte
     message: field.openWords
       ? `\`${value.text}\` is a number, not a ${field.label.toLowerCase()}: write a word, e.g. ${known.join(', ')}.`
       : `\`${value.text}\` is not a known value for ${field.label.toLowerCase()}; expected one of: ${known.join(', ')}.`,
-    fixes: near.map((w) => ({ title: `Change to \`${field.words?.[w] ?? w}\``, edits: [{ span: value.span, newText: field.words?.[w] ?? w }] })),
+    fixes: near.map((w) => ({ title: `Change to \`${field.words?.[w] ?? w}\``, edits: renameKeepingColumns(lineText, value.span, field.words?.[w] ?? w) })),
   };
 }
 
@@ -336,7 +337,7 @@ function unknownKeyIssue(item: ItemNode, section: SectionId, line: number, lineI
     // its words, with the device offered for them together; its later words are not reported again.
     const phrase = lineItems[0] === item ? devicePhraseAt(key, lineItems, 1, lineText) : null;
     if (phrase) {
-      const fix = phraseFix(phrase);
+      const fix = phraseFix(phrase, lineText);
       return {
         check: 'unknown-key',
         line,
@@ -370,7 +371,7 @@ function unknownKeyIssue(item: ItemNode, section: SectionId, line: number, lineI
     span: key.span,
     message: `\`${key.text}\` is ${devices.length > 0 ? 'neither a device nor a key' : 'not a key'} of ${section} lines${where}.${hint}`,
     // With a reading set aside the word was as near a key of another kind: never a fix applied unasked.
-    fixes: near.map((k) => ({ title: `Change to \`${k}\``, edits: [{ span: key.span, newText: k }], preferred: near.length === 1 && !keys.setAside && safeKeyFix(key.text.toLowerCase(), k.toLowerCase()) })),
+    fixes: near.map((k) => ({ title: `Change to \`${k}\``, edits: renameKeepingColumns(lineText, key.span, k), preferred: near.length === 1 && !keys.setAside && safeKeyFix(key.text.toLowerCase(), k.toLowerCase()) })),
   };
 }
 
@@ -519,8 +520,8 @@ function devicePhraseAt(first: { readonly text: string; readonly span: Span }, l
 }
 
 /** The fix that writes a device for the words near it. */
-function phraseFix(phrase: DevicePhrase): LineFix {
-  return { title: `Change to \`${phrase.device}\``, edits: [{ span: phrase.span, newText: phrase.device }] };
+function phraseFix(phrase: DevicePhrase, lineText: string): LineFix {
+  return { title: `Change to \`${phrase.device}\``, edits: renameKeepingColumns(lineText, phrase.span, phrase.device) };
 }
 
 /**

@@ -28,6 +28,7 @@ import type {
   WordValue,
 } from './tree';
 import { NONE } from '../util/lists';
+import { renameKeepingColumns } from './layout';
 import { compact } from '../util/numbers';
 
 export interface LineSlice {
@@ -270,7 +271,7 @@ function parseLineUnsafe(text: string, line: number): LineNode {
     const strays: SyntaxIssue[] = [];
     strayCommas(body, chunks, false, false, strays);
     // Last: it may read the line again under a section, which reuses the lexer's words (`chunks`).
-    const issues = [unknownSectionIssue(sectionToken, body, line), ...strays];
+    const issues = [unknownSectionIssue(sectionToken, body, line, text), ...strays];
     return new UnknownNode(line, text, comment, sectionToken, rest, issues);
   }
   if (section.id === 'note') {
@@ -316,11 +317,12 @@ function keptIssues(issues: SyntaxIssue[]): readonly SyntaxIssue[] {
   return kept;
 }
 
-function unknownSectionIssue(first: Token, body: string, line: number): SyntaxIssue {
+function unknownSectionIssue(first: Token, body: string, line: number, text: string): SyntaxIssue {
   const word = first.text.toLowerCase();
+  // The section meant, with the items kept in the column they were laid out in (`renameKeepingColumns`).
   const fixes: LineFix[] = closest(word, SECTIONS.map((s) => s.id)).map((s) => ({
     title: `Change to \`${s}\``,
-    edits: [{ span: first.span, newText: s }],
+    edits: renameKeepingColumns(text, first.span, s),
   }));
   // A key written without its section, e.g. `hr 118`: offer the section that owns the key, when
   // the line reads cleanly under it (not `lac` alone, which would leave a key without a value).
