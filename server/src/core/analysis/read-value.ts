@@ -269,7 +269,8 @@ function unknownWordIssue(item: ItemNode, field: FieldDef, line: number, lineIte
       fixes: [phraseFix(phrase, lineText)],
     };
   }
-  const near = closest(value.text, Object.keys(field.words ?? {}));
+  // Each word once, however many of its spellings are near (`mael`: `male` and `m`, both male).
+  const near = [...new Set(closest(value.text, Object.keys(field.words ?? {})).map((w) => field.words?.[w] ?? w))];
   return {
     check: 'unknown-word',
     line,
@@ -277,7 +278,7 @@ function unknownWordIssue(item: ItemNode, field: FieldDef, line: number, lineIte
     message: field.openWords
       ? `\`${value.text}\` is a number, not a ${field.label.toLowerCase()}: write a word, e.g. ${known.join(', ')}.`
       : `\`${value.text}\` is not a known value for ${field.label.toLowerCase()}; expected one of: ${known.join(', ')}.`,
-    fixes: near.map((w) => ({ title: `Change to \`${field.words?.[w] ?? w}\``, edits: renameKeepingColumns(lineText, value.span, field.words?.[w] ?? w) })),
+    fixes: near.map((w) => ({ title: `Change to \`${w}\``, edits: renameKeepingColumns(lineText, value.span, w) })),
   };
 }
 
