@@ -262,3 +262,30 @@ describe('a pressure of the other support beside `niv` or `cpap` (PN318)', () =>
     expect(offered('oxygen cpap, levl 8')).toEqual(['Change to `level`']);
   });
 });
+
+// Bilevel pressures are commonly written as a pair, the inspiratory first (`niv 16/6`: IPAP 16, EPAP
+// 6; common practice, no source). The pair has no key and is not read (PN105); it was offered no fix.
+describe('a pair after `niv` (PN105)', () => {
+  const pn105 = (line: string) => checkNote(`@ 08:00\n${line}`).findings.filter((f) => f.code === 'PN105');
+
+  it('is offered its keys, IPAP first, where the first is the higher', () => {
+    for (const [line, keys, fixed] of [
+      ['oxygen niv 16/6, fio2 0.4', 'ipap 16, epap 6', 'oxygen niv ipap 16, epap 6, fio2 0.4'],
+      ['oxygen bilevel 14/5', 'ipap 14, epap 5', 'oxygen bilevel ipap 14, epap 5'],
+      ['oxygen device niv, 18/8', 'ipap 18, epap 8', 'oxygen device niv, ipap 18, epap 8'],
+    ] as const) {
+      const [f] = pn105(line);
+      expect(f?.message, line).toBe(`\`${line.match(/\d+\/\d+/)![0]}\` has no key; write it as \`key value\`, e.g. \`hr 118\`. Did you mean \`${keys}\`?`);
+      expect(f?.fixes.map((x) => x.title), line).toEqual([`Write \`${keys}\``]);
+      const after = applyEdits(`@ 08:00\n${line}`, f!.fixes[0]!.edits);
+      expect(after.split('\n')[1], line).toBe(fixed);
+      expect(checkNote(after).findings.filter((x) => x.severity === 'error' || x.severity === 'warning'), line).toEqual([]);
+    }
+  });
+
+  it('is offered nothing where the order or the device leaves it open', () => {
+    for (const line of ['oxygen niv 6/16', 'oxygen niv 8/8', 'oxygen cpap 16/6', 'oxygen mask 16/6', 'oxygen niv ipap 16, 16/6']) {
+      expect(pn105(line).flatMap((f) => f.fixes), line).toEqual([]);
+    }
+  });
+});
