@@ -153,3 +153,139 @@ describe('a pressure PN318 reports is not used', () => {
     });
   });
 });
+
+// The other support's pressure beside a device that is named: CPAP holds one pressure, its level,
+// and gives no IPAP and no EPAP; bilevel ventilation (NIV) gives an IPAP and an EPAP, not one level
+// (common practice, no source). `oxygen cpap ipap 14, epap 6` and `oxygen niv level 8` passed in
+// silence, and each pressure was used: with a CPAP level and an EPAP both written under CPAP, the
+// EPAP was taken as the end-expiratory pressure, not the CPAP level the device gives.
+describe('a pressure of the other support beside `niv` or `cpap` (PN318)', () => {
+  it('fires on an IPAP or an EPAP beside `cpap`, and on a CPAP level beside `niv` or `bilevel`, once per pressure', () => {
+    const at = (line: string) => pn318(`@ 08:00\n${line}`).map((f) => line.slice(f.range.start.character, f.range.end.character));
+    expect(at('oxygen cpap ipap 14, epap 6')).toEqual(['ipap 14', 'epap 6']);
+    expect(at('oxygen cpap epap 6, fio2 0.4')).toEqual(['epap 6']);
+    expect(at('oxygen niv level 8')).toEqual(['level 8']);
+    expect(at('oxygen bilevel level 8, fio2 0.5')).toEqual(['level 8']);
+    expect(at('oxygen device cpap, ipap 14')).toEqual(['ipap 14']);
+    // With the device's own pressures written too, only the other one is reported.
+    expect(at('oxygen niv ipap 14, epap 6, level 8')).toEqual(['level 8']);
+    expect(at('oxygen cpap level 8, epap 6')).toEqual(['epap 6']);
+    expect(at('oxygen cpap 8, ipap 14')).toEqual(['ipap 14']);
+  });
+
+  it('stays silent on the support\'s own pressures, on pressures without a device, and on a pressure of 0', () => {
+    for (const line of ['oxygen niv ipap 14, epap 6', 'oxygen cpap level 8', 'oxygen cpap 8', 'oxygen ipap 14, epap 6, level 8', 'oxygen niv ipap 14, epap 6, level 0', 'oxygen cpap 8, epap 0']) {
+      expect(pn318(`@ 08:00\n${line}`), line).toEqual([]);
+    }
+  });
+
+  it('says what the device gives and what to write instead', () => {
+    const messages = (line: string) => pn318(`@ 08:00\n${line}`).map((f) => f.message);
+    expect(messages('oxygen cpap ipap 14, epap 6')).toEqual([
+      '`ipap 14` beside `cpap`: CPAP gives one pressure, its level, and no IPAP, so the IPAP is not used. An IPAP and an EPAP are the pressures of bilevel support: if it is given, write `niv` as the device.',
+      '`epap 6` beside `cpap`: CPAP gives one pressure, its level, and no EPAP, so the EPAP is not used (not as the end-expiratory pressure either). An IPAP and an EPAP are the pressures of bilevel support: if it is given, write `niv` as the device.',
+    ]);
+    expect(messages('oxygen cpap epap 6')).toEqual(['`epap 6` beside `cpap`: CPAP gives one pressure, its level, and no EPAP, so the EPAP is not used (not as the end-expiratory pressure either). Under CPAP the one pressure is the level: write `level` for `epap`, or `niv` as the device if the support is bilevel.']);
+    expect(messages('oxygen niv level 8')).toEqual(['`level 8` beside `niv`: NIV gives an IPAP and an EPAP, not one CPAP level, so the CPAP level is not used (not as the end-expiratory pressure either). One level is continuous pressure: if so, write `cpap` as the device.']);
+    expect(messages('oxygen cpap level 8, epap 6')).toEqual(['`epap 6` beside `cpap`: CPAP gives one pressure, its level, and no EPAP, so the EPAP is not used (not as the end-expiratory pressure either). The line writes the CPAP level too: remove the EPAP, or name the device that gives it.']);
+  });
+
+  it('offers only the fix that is surely right, and each leaves the line without PN318', () => {
+    const cases: readonly (readonly [string, readonly string[], string])[] = [
+      // Two pressures, an IPAP among them: bilevel support with the wrong device word.
+      ['oxygen cpap ipap 14, epap 6', ['Change the device to `niv`'], 'oxygen niv ipap 14, epap 6'],
+      ['oxygen device cpap, ipap 14', ['Change the device to `niv`'], 'oxygen device niv, ipap 14'],
+      // One level under NIV is CPAP; a number after `niv` is its flow, which `cpap` would read as its level.
+      ['oxygen niv level 8', ['Change the device to `cpap`'], 'oxygen cpap level 8'],
+      ['oxygen niv 4, level 8', ['Change the device to `cpap`'], 'oxygen cpap flow 4, level 8'],
+      // CPAP's one pressure is its expiratory pressure too: an EPAP alone is its level.
+      ['oxygen cpap epap 6, fio2 0.4', ['Change `epap` to `level`'], 'oxygen cpap level 6, fio2 0.4'],
+      // The device's own pressure is written too: the other one goes.
+      ['oxygen cpap level 8, epap 6', ['Remove `epap 6`'], 'oxygen cpap level 8'],
+      ['oxygen niv ipap 14, epap 6, level 8 # a remark', ['Remove `level 8`'], 'oxygen niv ipap 14, epap 6 # a remark'],
+    ];
+    for (const [line, titles, fixed] of cases) {
+      const text = `@ 08:00\n${line}`;
+      const [first] = pn318(text);
+      expect(first?.fixes.map((x) => x.title), line).toEqual(titles);
+      expect(first!.fixes.some((x) => x.preferred === true), line).toBe(false);
+      const after = applyEdits(text, first!.fixes[0]!.edits);
+      expect(after.split('\n')[1], line).toBe(fixed);
+      expect(pn318(after), line).toEqual([]);
+    }
+    // Not offered where the pressures, then used, would be out of order (PN315).
+    expect(pn318('@ 08:00\noxygen cpap ipap 6, epap 12').map((f) => f.fixes.map((x) => x.title))).toEqual([[], []]);
+  });
+
+  // Driving pressure Pplat − PEEP (Amato MBP et al., "Driving pressure and survival in the acute
+  // respiratory distress syndrome", NEJM 2015;372:747–755), the end-expiratory pressure being the
+  // one the device gives.
+  const withReadings = (oxygen: string) => `${PATIENT}@ 08:00\n${oxygen}\nvent peak 18, plateau 16\nvitals rr 22`;
+
+  it('takes as the end-expiratory pressure the one the device gives, whichever is written first', () => {
+    const dp = (oxygen: string) => derivation(withReadings(oxygen)).derived.find((v) => v.id === 'driving_pressure')?.value;
+    // Under CPAP the level: 16 − 8 = 8 cmH2O; under NIV the EPAP: 16 − 6 = 10 cmH2O.
+    expect(dp('oxygen cpap level 8, epap 6')).toBe(8);
+    expect(dp('oxygen cpap epap 6, level 8')).toBe(8);
+    expect(dp('oxygen niv ipap 14, epap 6, level 8')).toBe(10);
+    expect(dp('oxygen niv level 8, ipap 14, epap 6')).toBe(10);
+    // With no device the pressures decide (NIV: an EPAP is written), as before.
+    expect(dp('oxygen ipap 14, epap 6, level 8')).toBe(10);
+    // The other support's pressure alone is not used, and the missing value says what to mend.
+    const d = derivation(withReadings('oxygen cpap ipap 14, epap 6'));
+    expect(d.derived.find((v) => v.id === 'driving_pressure')).toBeUndefined();
+    expect(d.missing.find((m) => m.id === 'driving_pressure')?.needs).toEqual(['a device that gives the epap on line 3 (niv: cpap gives no EPAP, see PN318)']);
+    expect(derivation(withReadings('oxygen niv level 8')).missing.find((m) => m.id === 'driving_pressure')?.needs).toEqual(['a device that gives the CPAP level on line 3 (cpap: niv gives no CPAP level, see PN318)']);
+  });
+
+  it('compares with a peak (PN314) and with the IPAP (PN315) only the pressures the device gives', () => {
+    const codes = (text: string) => checkNote(text).findings.map((f) => f.code);
+    // The CPAP level 8 is the end-expiratory pressure, at or below the peak of 10; the EPAP 12 is reported.
+    expect(codes('@ 08:00\noxygen cpap level 8, epap 12\nvent peak 10')).toEqual(['PN318']);
+    expect(codes('@ 08:00\noxygen cpap level 12, epap 8\nvent peak 10')).toEqual(['PN318', 'PN314']);
+    expect(codes('@ 08:00\noxygen cpap ipap 6, epap 12')).toEqual(['PN318', 'PN318']);
+    expect(codes('@ 08:00\noxygen niv ipap 6, epap 12, level 4')).toEqual(['PN315', 'PN318']);
+  });
+
+  it('the hover of the pressure says what the device gives', () => {
+    const hover = (text: string) => { const { result, position } = noteAt(text); return hoverAt(result, position)?.markdown ?? ''; };
+    expect(hover('@ 08:00\noxygen cpap ipap 1|4, epap 6')).toContain('Not used in calculations: the device `cpap` gives one pressure, its level, and no IPAP (PN318).');
+    expect(hover('@ 08:00\noxygen niv level |8')).toContain('Not used in calculations: the device `niv` gives an IPAP and an EPAP, not one CPAP level (PN318).');
+    expect(hover('@ 08:00\noxygen cpap level |8, epap 6')).not.toContain('Not used in calculations');
+  });
+
+  it('a misspelt key beside `niv` or `cpap` is not offered the other support\'s pressure', () => {
+    const offered = (line: string) => checkNote(`@ 08:00\n${line}`).findings.filter((f) => f.code === 'PN201').flatMap((f) => f.fixes.map((x) => x.title));
+    expect(offered('oxygen cpap, ipa 14')).not.toContain('Change to `ipap`');
+    expect(offered('oxygen niv, levl 8, ipap 12')).not.toContain('Change to `level`');
+    expect(offered('oxygen niv, ipa 14')).toEqual(['Change to `ipap`']);
+    expect(offered('oxygen cpap, levl 8')).toEqual(['Change to `level`']);
+  });
+});
+
+// Bilevel pressures are commonly written as a pair, the inspiratory first (`niv 16/6`: IPAP 16, EPAP
+// 6; common practice, no source). The pair has no key and is not read (PN105); it was offered no fix.
+describe('a pair after `niv` (PN105)', () => {
+  const pn105 = (line: string) => checkNote(`@ 08:00\n${line}`).findings.filter((f) => f.code === 'PN105');
+
+  it('is offered its keys, IPAP first, where the first is the higher', () => {
+    for (const [line, keys, fixed] of [
+      ['oxygen niv 16/6, fio2 0.4', 'ipap 16, epap 6', 'oxygen niv ipap 16, epap 6, fio2 0.4'],
+      ['oxygen bilevel 14/5', 'ipap 14, epap 5', 'oxygen bilevel ipap 14, epap 5'],
+      ['oxygen device niv, 18/8', 'ipap 18, epap 8', 'oxygen device niv, ipap 18, epap 8'],
+    ] as const) {
+      const [f] = pn105(line);
+      expect(f?.message, line).toBe(`\`${line.match(/\d+\/\d+/)![0]}\` has no key; write it as \`key value\`, e.g. \`hr 118\`. Did you mean \`${keys}\`?`);
+      expect(f?.fixes.map((x) => x.title), line).toEqual([`Write \`${keys}\``]);
+      const after = applyEdits(`@ 08:00\n${line}`, f!.fixes[0]!.edits);
+      expect(after.split('\n')[1], line).toBe(fixed);
+      expect(checkNote(after).findings.filter((x) => x.severity === 'error' || x.severity === 'warning'), line).toEqual([]);
+    }
+  });
+
+  it('is offered nothing where the order or the device leaves it open', () => {
+    for (const line of ['oxygen niv 6/16', 'oxygen niv 8/8', 'oxygen cpap 16/6', 'oxygen mask 16/6', 'oxygen niv ipap 16, 16/6']) {
+      expect(pn105(line).flatMap((f) => f.fixes), line).toEqual([]);
+    }
+  });
+});

@@ -23,3 +23,13 @@ describe('word values (PN205)', () => {
     expect(pn205('patient sex x\n@ 08:00')).toEqual(['`x` is not a known value for sex; expected one of: female, male.']);
   });
 });
+
+describe('the words offered for a misspelt one (PN205)', () => {
+  // `mael` is one letter from both `male` and `m`, two spellings of one word: it was offered
+  // `male` twice, as two quick fixes of the same title and edit.
+  it('offers each word once, however many of its spellings are near', () => {
+    const titles = (text: string) => checkNote(text).findings.filter((f) => f.code === 'PN205').flatMap((f) => f.fixes.map((x) => x.title));
+    expect(titles('patient sex mael')).toEqual(['Change to `male`']);
+    expect(titles('patient sex femal')).toEqual(['Change to `female`']);
+  });
+});

@@ -120,7 +120,7 @@ describe('in headless Neovim', () => {
   it('offers completions and applies a quick fix, whose edit clears the finding', () => {
     expect(typo.completions).toEqual(expect.arrayContaining(['hr', 'rr', 'spo2']));
     expect(typo.actions).toContain('Change to `vitals`');
-    expect(typo.acted?.[2]).toBe('vitals     hr 100'); // the word replaced; the layout is the formatter's
+    expect(typo.acted?.[2]).toBe('vitals    hr 100'); // the word replaced, the items kept in column 10 as the formatter writes them
     expect(typo.settled).toBe(true);
     expect(typo.after?.map((d) => d.code)).not.toContain('PN101');
   });

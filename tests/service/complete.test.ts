@@ -223,8 +223,14 @@ describe('units', () => {
   });
 
   it('offers the keys of the line\'s device: IPAP and EPAP for NIV, a level for CPAP, neither for others', () => {
-    expect(labels('oxygen niv |')).toEqual(['flow', 'fio2', 'ipap', 'epap']);
-    expect(labels('oxygen cpap 8 |')).toEqual(['cmH2O', 'mbar', 'flow', 'fio2']);
+    // NIV and CPAP are set by their pressures and FiO2: those first, the flow (a bleed-in of oxygen) last.
+    expect(labels('oxygen niv |')).toEqual(['ipap', 'epap', 'fio2', 'flow']);
+    expect(labels('oxygen cpap |')).toEqual(['level', 'fio2', 'flow']);
+    expect(labels('oxygen cpap 8 |')).toEqual(['cmH2O', 'mbar', 'fio2', 'flow']);
+    expect(labels('oxygen niv ipap 14, |')).toEqual(['epap', 'fio2', 'flow']);
+    expect(labels('oxygen device niv, |')).toEqual(['ipap', 'epap', 'fio2', 'flow']);
+    // Devices that set a flow keep the flow first.
+    expect(labels('oxygen cannula |')).toEqual(['flow', 'fio2']);
     expect(labels('oxygen hfnc 50 |')).toEqual(['L/min', 'fio2']);
     expect(labels('oxygen mask, |')).toEqual(['flow', 'fio2']);
   });
@@ -234,7 +240,7 @@ describe('units', () => {
       const offered = labels(`oxygen ${device}, |`);
       for (const key of ['ipap', 'epap', 'level', 'pressure']) expect(offered, `${device}: ${key}`).not.toContain(key);
     }
-    expect(labels('oxygen bilevel |')).toEqual(['flow', 'fio2', 'ipap', 'epap']);
+    expect(labels('oxygen bilevel |')).toEqual(['ipap', 'epap', 'fio2', 'flow']);
   });
 
   it('offers a section\'s own keys first, then those it shares with other lines', () => {

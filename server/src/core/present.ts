@@ -6,7 +6,7 @@ import type { InputValue, Origin, StatedValue, Timepoint } from './analysis/mode
 import { displayUnit } from './analysis/read-value';
 import type { Timeline } from './analysis/timeline';
 import { fieldById, shortName } from './fields/registry';
-import { convert, unitById, type UnitDef } from './fields/units';
+import { convert, unitById, UNITS, type UnitDef } from './fields/units';
 import { formatNumber, halfLastDigit, writtenDecimals } from './util/format';
 import { MMHG_PER_KPA } from './physiology/units';
 
@@ -183,11 +183,26 @@ export function formatAlternative(s: StatedValue): string | null {
   const written = s.readUnit !== null && s.readUnit !== s.unit && !s.unitImplied;
   const alt = written ? s.readUnit : ALTERNATIVE[s.unit ?? ''];
   if (!alt || s.word !== null || (s.value === null && !s.parts)) return null;
-  // As written: the number the note holds, not one converted back.
-  if (written && s.value !== null && s.item.valueKind === 'number' && s.item.value) return `${s.item.value.text} ${displayUnit(alt)}`;
+  // As written: the number the note holds, not one converted back, in the unit as written.
+  if (written && s.value !== null && s.item.valueKind === 'number' && s.item.value) return `${s.item.value.text} ${readUnitName(s)}`;
   const field = s.field;
   if (!field.units?.includes(alt)) return null;
   return formatStated(s, alt);
+}
+
+/**
+ * The name of the unit a stated value was read in, as the note wrote it where the spelling is the
+ * name of another unit of the same size: `mbar` for a barometric pressure read in hPa, `hPa` for an
+ * airway pressure read in mbar (1 mbar = 1 hPa = 100 Pa). Else the unit's own name (`hpa` is hPa).
+ */
+export function readUnitName(s: StatedValue): string {
+  const id = s.readUnit ?? '';
+  const written = s.unitImplied ? undefined : s.item.unit?.text.toLowerCase();
+  if (written !== undefined && written !== id.toLowerCase()) {
+    const aliases = unitById(id)?.aliases ?? [];
+    for (const u of UNITS) if (u.id !== id && u.id.toLowerCase() === written && aliases.some((a) => a.toLowerCase() === written)) return displayUnit(u.id);
+  }
+  return displayUnit(id);
 }
 
 const ALTERNATIVE: Readonly<Record<string, string>> = {

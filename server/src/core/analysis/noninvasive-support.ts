@@ -75,28 +75,68 @@ export function givesNoSetPressure(device: string | null): boolean {
 }
 
 /**
+ * Whether an oxygen line whose device is `device` gives the pressure `fieldId` (an IPAP, an EPAP or
+ * a CPAP level): with no device named, any (the pressures decide the support); beside `niv` its
+ * IPAP and EPAP, beside `cpap` its level (CPAP holds one pressure and has no inspiratory one; bilevel
+ * support gives two, not one level: common practice, no source); beside another device none
+ * (`givesNoSetPressure`). A pressure a device does not give is reported (PN318) and not used.
+ */
+export function givesPressure(device: string | null, fieldId: string): boolean {
+  return device === null || supportOfDevice(device) === supportOfPressure(fieldId);
+}
+
+/**
  * The device of the oxygen line of `pressure` (an IPAP, an EPAP or a CPAP level stated at a
- * timepoint; `stated` the values stated there) when that device gives no set airway pressure
- * (`givesNoSetPressure`, PN318) and the pressure is not 0; else null. The device is the one written
- * on the pressure's line.
+ * timepoint; `stated` the values stated there) when that device does not give the pressure
+ * (`givesPressure`, PN318: one that gives no set airway pressure, or the other support) and the
+ * pressure is not 0; else null. The device is the one written on the pressure's line.
  */
 export function deviceWithoutPressure(stated: readonly StatedValue[], pressure: StatedValue): StatedValue | null {
-  // A pressure of 0 is no pressure, which such a device agrees with (`oxygen room air, epap 0`).
+  // A pressure of 0 is no pressure, which any device agrees with (`oxygen room air, epap 0`).
   if (pressure.section !== 'oxygen' || pressure.value === 0 || supportOfPressure(pressure.fieldId) === null) return null;
   // The last device of the line, as the values in force take it (a device written twice is PN206).
   for (let i = stated.length - 1; i >= 0; i--) {
     const s = stated[i]!;
-    if (s.line === pressure.line && s.fieldId === 'device' && s.section === 'oxygen') return givesNoSetPressure(s.word) ? s : null;
+    if (s.line === pressure.line && s.fieldId === 'device' && s.section === 'oxygen') return s.word !== null && !givesPressure(s.word, pressure.fieldId) ? s : null;
+  }
+  return null;
+}
+
+/** The values in force, asked for numbers without building values. */
+export interface NumbersInForce {
+  numberOf(fieldId: string): number | null;
+}
+
+const NIV_FIRST: readonly ['epap', 'cpap_level'] = ['epap', 'cpap_level'];
+const CPAP_FIRST: readonly ['cpap_level', 'epap'] = ['cpap_level', 'epap'];
+
+/**
+ * The oxygen-line pressure in force taken as the end-expiratory pressure where no PEEP is (the
+ * oxygenation band, driving pressure, the compliances, PN314): the one the device gives, the CPAP
+ * level under `cpap` and else the EPAP first; none that the device does not give (PN318), but one
+ * of 0 (no pressure, which any device agrees with). Null when none is.
+ */
+export function endExpiratoryField(device: string | null, values: NumbersInForce): 'epap' | 'cpap_level' | null {
+  const order = device !== null && supportOfDevice(device) === 'cpap' ? CPAP_FIRST : NIV_FIRST;
+  for (let i = 0; i < order.length; i++) {
+    const id = order[i]!;
+    const value = values.numberOf(id);
+    if (value !== null && (value === 0 || givesPressure(device, id))) return id;
   }
   return null;
 }
 
 /**
- * Whether the pressures of the oxygen line in force at a timepoint are ones its device gives none of
- * (PN318: `givesNoSetPressure`); the device and the pressures in force come from one oxygen line,
- * which replaces the one before it whole. Asked without building a value where no device is in force.
+ * The device word of the oxygen line in force at a timepoint (the device and the pressures in force
+ * come from one oxygen line, which replaces the one before it whole); null when none. Asked without
+ * building a value where no device is in force.
  */
-export function pressuresNotGiven(values: ValuesInForce): boolean {
-  if (values.originOf('device') === null) return false;
-  return givesNoSetPressure(values.get('device')?.stated.word ?? null);
+export function deviceInForce(values: ValuesInForce): string | null {
+  if (values.originOf('device') === null) return null;
+  return values.get('device')?.stated.word ?? null;
+}
+
+/** Whether the IPAP and EPAP in force are pressures the device in force does not give (PN318). */
+export function nivPressuresNotGiven(values: ValuesInForce): boolean {
+  return !givesPressure(deviceInForce(values), 'epap');
 }

@@ -13,9 +13,10 @@ import { formatNumber, wordList } from '../util/format';
 import { closest, editDistance } from '../util/suggest';
 import { nearDevicePhrase } from '../fields/device-phrases';
 import { squeezeBlanks } from '../syntax/blanks';
+import { renameKeepingColumns } from '../syntax/layout';
 import { doubtBoundsAt, softBoundsAt, unitsWithin, within, type BoundsContext } from './bounds';
 import type { StatedValue } from './model';
-import { givesNoSetPressure, supportOfDevice, SUPPORT_PRESSURE_FIELDS } from './noninvasive-support';
+import { givesNoSetPressure, givesPressure, supportOfDevice, SUPPORT_PRESSURE_FIELDS } from './noninvasive-support';
 import type { ReadIssue } from './read-issues';
 
 export interface ReadContext extends BoundsContext {
@@ -265,10 +266,11 @@ function unknownWordIssue(item: ItemNode, field: FieldDef, line: number, lineIte
       line,
       span: phrase.span,
       message: `\`${phrase.text}\` is not a known value for ${field.label.toLowerCase()}. Did you mean \`${phrase.device}\`?`,
-      fixes: [phraseFix(phrase)],
+      fixes: [phraseFix(phrase, lineText)],
     };
   }
-  const near = closest(value.text, Object.keys(field.words ?? {}));
+  // Each word once, however many of its spellings are near (`mael`: `male` and `m`, both male).
+  const near = [...new Set(closest(value.text, Object.keys(field.words ?? {})).map((w) => field.words?.[w] ?? w))];
   return {
     check: 'unknown-word',
     line,
@@ -276,7 +278,7 @@ function unknownWordIssue(item: ItemNode, field: FieldDef, line: number, lineIte
     message: field.openWords
       ? `\`${value.text}\` is a number, not a ${field.label.toLowerCase()}: write a word, e.g. ${known.join(', ')}.`
       : `\`${value.text}\` is not a known value for ${field.label.toLowerCase()}; expected one of: ${known.join(', ')}.`,
-    fixes: near.map((w) => ({ title: `Change to \`${field.words?.[w] ?? w}\``, edits: [{ span: value.span, newText: field.words?.[w] ?? w }] })),
+    fixes: near.map((w) => ({ title: `Change to \`${w}\``, edits: renameKeepingColumns(lineText, value.span, w) })),
   };
 }
 
@@ -336,7 +338,7 @@ function unknownKeyIssue(item: ItemNode, section: SectionId, line: number, lineI
     // its words, with the device offered for them together; its later words are not reported again.
     const phrase = lineItems[0] === item ? devicePhraseAt(key, lineItems, 1, lineText) : null;
     if (phrase) {
-      const fix = phraseFix(phrase);
+      const fix = phraseFix(phrase, lineText);
       return {
         check: 'unknown-key',
         line,
@@ -351,8 +353,10 @@ function unknownKeyIssue(item: ItemNode, section: SectionId, line: number, lineI
   // unknown key, and is offered the devices it is near.
   const devices = section === 'oxygen' && lineItems[0] === item ? nearDevices(key.text) : [];
   const renamed = endExpiratoryName(key.text, section, lineItems);
-  // Beside a device that gives no set airway pressure, no key of one is offered (it would be PN318).
-  const candidates = section === 'oxygen' && givesNoSetPressure(deviceOfLine(lineItems)) ? keysInSection(section).filter(isNoPressureKey) : keysInSection(section);
+  // No key of a pressure the device does not give is offered (it would be PN318): none beside a
+  // device that gives no set airway pressure, no IPAP or EPAP beside `cpap`, no level beside `niv`.
+  const lineDevice = section === 'oxygen' ? deviceOfLine(lineItems) : null;
+  const candidates = lineDevice !== null ? keysInSection(section).filter((k) => isKeyGiven(k, lineDevice)) : keysInSection(section);
   const elsewhere = FIELDS.filter((f) => f.aliases.includes(key.text.toLowerCase())).flatMap((f) => f.sections);
   // A key of another line is on the wrong line, not misspelt: no key of another quantity is
   // offered for it (`hb` on a vitals line is not the heart rate `hr`), but the line's own name.
@@ -368,7 +372,7 @@ function unknownKeyIssue(item: ItemNode, section: SectionId, line: number, lineI
     span: key.span,
     message: `\`${key.text}\` is ${devices.length > 0 ? 'neither a device nor a key' : 'not a key'} of ${section} lines${where}.${hint}`,
     // With a reading set aside the word was as near a key of another kind: never a fix applied unasked.
-    fixes: near.map((k) => ({ title: `Change to \`${k}\``, edits: [{ span: key.span, newText: k }], preferred: near.length === 1 && !keys.setAside && safeKeyFix(key.text.toLowerCase(), k.toLowerCase()) })),
+    fixes: near.map((k) => ({ title: `Change to \`${k}\``, edits: renameKeepingColumns(lineText, key.span, k), preferred: near.length === 1 && !keys.setAside && safeKeyFix(key.text.toLowerCase(), k.toLowerCase()) })),
   };
 }
 
@@ -472,10 +476,10 @@ export function deviceOfLine(lineItems: readonly ItemNode[]): string | null {
   return device;
 }
 
-/** Whether a key of an oxygen line names no pressure of NIV or CPAP. */
-function isNoPressureKey(key: string): boolean {
+/** Whether a key of an oxygen line names no pressure of NIV or CPAP, or one that `device` gives. */
+function isKeyGiven(key: string, device: string): boolean {
   const field = fieldFor('oxygen', key);
-  return field === undefined || !SUPPORT_PRESSURE_FIELDS.includes(field.id);
+  return field === undefined || !SUPPORT_PRESSURE_FIELDS.includes(field.id) || givesPressure(device, field.id);
 }
 
 /** A run of words that is near a device of several words but not one: what it reads as, and where. */
@@ -517,8 +521,8 @@ function devicePhraseAt(first: { readonly text: string; readonly span: Span }, l
 }
 
 /** The fix that writes a device for the words near it. */
-function phraseFix(phrase: DevicePhrase): LineFix {
-  return { title: `Change to \`${phrase.device}\``, edits: [{ span: phrase.span, newText: phrase.device }] };
+function phraseFix(phrase: DevicePhrase, lineText: string): LineFix {
+  return { title: `Change to \`${phrase.device}\``, edits: renameKeepingColumns(lineText, phrase.span, phrase.device) };
 }
 
 /**

@@ -77,7 +77,7 @@ export const badTime = syntaxCheck('PN104', 'bad-time', 'Unreadable time', 'erro
 export const strayText = syntaxCheck('PN105', 'stray-text', 'Stray text', 'error', {
   fires: 'A number (or other text) appears where a key was expected, or a number is typed with digits other than 0–9 (fullwidth `８０`, Arabic-Indic `٨٠`), which are not read as a number. At information level: a full stop that ends a line of items (`hr 80.`, read as `hr 80`), or a comma that separates nothing (at the start of a line, right after its section word or `@`, a second one between two items, where a value may be missing, or between the time and the label of a timepoint); the line is read without it. A number in brackets anywhere but right after a blood pressure, one not closed (`bp 120/80 (93`), or one with more glued after its `)` (`bp 120/80 (93)x`) is not read as the measured mean; the blood pressure is.',
   example: 'vitals hr 118 120',
-  fix: 'Give the number its key (`rr 20`), or remove it; write a number in the digits 0–9 (a fix does it). A full stop or a comma that separates nothing has a fix that removes it, also for the whole note.',
+  fix: 'Give the number its key (`rr 20`), or remove it; write a number in the digits 0–9 (a fix does it). A pair of pressures after `niv`, the higher first (`16/6`), is offered its keys (`ipap 16, epap 6`). A full stop or a comma that separates nothing has a fix that removes it, also for the whole note.',
 });
 
 export const badShorthand = syntaxCheck('PN106', 'bad-shorthand', 'Unreadable shorthand gas', 'error', {

@@ -9,7 +9,7 @@ import type { InputValue, Timepoint } from '../analysis/model';
 import { toRange } from '../syntax/tree';
 import { decimalsAgainst, formatShort } from '../util/format';
 import { defineCheck, type TimepointContext } from './check';
-import { pressuresNotGiven } from '../analysis/noninvasive-support';
+import { deviceInForce, endExpiratoryField, nivPressuresNotGiven } from '../analysis/noninvasive-support';
 
 function orderCheck(ctx: TimepointContext, lowId: string, highId: string, message: (low: number, high: number) => string): void {
   const tp = ctx.timepoint;
@@ -89,7 +89,7 @@ export const peepAbovePeak = defineCheck({
   severity: 'error',
   tags: ['plausibility'],
   doc: {
-    fires: 'PEEP is higher than the peak pressure in force at the same timepoint, where no plateau pressure is measured. The peak pressure is measured above atmospheric pressure and includes PEEP (PEEP plus the pressures that move the breath), so it cannot be lower. With a plateau measured, PEEP above plateau (PN303) or plateau above peak (PN304) is reported instead. On NIV or CPAP (an oxygen line in force, and a peak read on a vent line of readings) the EPAP or the CPAP level is the end-expiratory pressure compared; not one written beside a device that gives no set airway pressure (PN318).',
+    fires: 'PEEP is higher than the peak pressure in force at the same timepoint, where no plateau pressure is measured. The peak pressure is measured above atmospheric pressure and includes PEEP (PEEP plus the pressures that move the breath), so it cannot be lower. With a plateau measured, PEEP above plateau (PN303) or plateau above peak (PN304) is reported instead. On NIV or CPAP (an oxygen line in force, and a peak read on a vent line of readings) the EPAP or the CPAP level is the end-expiratory pressure compared, the one the device gives where both are written (the level under `cpap`, the EPAP under `niv`); not one the device does not give (PN318).',
     example: 'vent peep 12, peak 10',
     fix: 'Check both values; a peak written as the pressure above PEEP (a set inspiratory pressure or pressure support) is a common slip.',
   },
@@ -98,13 +98,15 @@ export const peepAbovePeak = defineCheck({
     // A plateau in force is compared with both (PN303, PN304); asked without building the value.
     const values = ctx.timepoint.values;
     if (values.numberOf('peak') === null || values.numberOf('plateau') !== null) return;
-    // The end-expiratory pressure in force: PEEP, else the EPAP (NIV), else the CPAP level; neither
-    // of these beside a device that gives no set airway pressure (PN318 reports them, unused).
+    // The end-expiratory pressure in force: PEEP, else the one of the oxygen line its device gives
+    // (the CPAP level under `cpap`, else the EPAP first); none the device does not give (PN318
+    // reports it, unused).
     if (values.numberOf('peep') !== null) orderCheck(ctx, 'peep', 'peak', peepAbovePeakMessage);
     else if (values.numberOf('epap') === null && values.numberOf('cpap_level') === null) return;
-    else if (pressuresNotGiven(values)) return;
-    else if (values.numberOf('epap') !== null) orderCheck(ctx, 'epap', 'peak', epapAbovePeakMessage);
-    else orderCheck(ctx, 'cpap_level', 'peak', cpapAbovePeakMessage);
+    else {
+      const id = endExpiratoryField(deviceInForce(values), values);
+      if (id !== null) orderCheck(ctx, id, 'peak', id === 'epap' ? epapAbovePeakMessage : cpapAbovePeakMessage);
+    }
   },
 });
 
@@ -117,16 +119,17 @@ export const epapAboveIpap = defineCheck({
   severity: 'error',
   tags: ['plausibility'],
   doc: {
-    fires: 'On non-invasive ventilation (an oxygen line with `ipap` and `epap`), the EPAP is higher than the IPAP in force at the same timepoint. Bilevel ventilation raises the pressure from EPAP to IPAP on each breath (IPAP = EPAP + the pressure support), so IPAP cannot be the lower one; equal pressures are continuous pressure, as CPAP. EPAP counts as PEEP for the oxygenation band, so swapped values also give the band a wrong PEEP. The two are not compared beside a device that gives no set airway pressure (`oxygen mask, ipap 6, epap 14`), where PN318 reports each.',
+    fires: 'On non-invasive ventilation (an oxygen line with `ipap` and `epap`), the EPAP is higher than the IPAP in force at the same timepoint. Bilevel ventilation raises the pressure from EPAP to IPAP on each breath (IPAP = EPAP + the pressure support), so IPAP cannot be the lower one; equal pressures are continuous pressure, as CPAP. EPAP counts as PEEP for the oxygenation band, so swapped values also give the band a wrong PEEP. The two are not compared beside a device that gives neither, one that gives no set airway pressure (`oxygen mask, ipap 6, epap 14`) or `cpap`, where PN318 reports each.',
     example: 'oxygen niv ipap 6, epap 14, fio2 0.4',
     fix: 'Check whether the two were swapped (`niv ipap 14, epap 6`).',
   },
   source: 'non-invasive ventilation: the inspiratory positive airway pressure is set above the expiratory one, their difference being the pressure support (common practice, no source)',
   runTimepoint(ctx) {
     // Asked without building the values: most timepoints are not on NIV. Beside a device that gives
-    // no set airway pressure, the two are not compared (PN318 reports each, unused).
+    // neither (one that gives no set airway pressure, or `cpap`), the two are not compared (PN318
+    // reports each, unused).
     const values = ctx.timepoint.values;
-    if (values.numberOf('epap') === null || values.numberOf('ipap') === null || pressuresNotGiven(values)) return;
+    if (values.numberOf('epap') === null || values.numberOf('ipap') === null || nivPressuresNotGiven(values)) return;
     orderCheck(ctx, 'epap', 'ipap', epapAboveIpapMessage);
   },
 });

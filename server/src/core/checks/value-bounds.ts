@@ -7,7 +7,7 @@ import { softBoundsAt, unitsWithin, within, withinAsWritten } from '../analysis/
 import type { StatedValue } from '../analysis/model';
 import type { Bounds, FieldDef } from '../fields/registry';
 import { displayUnit, isSaturationFraction } from '../analysis/read-value';
-import { decimalsFor, writtenDecimals } from '../present';
+import { decimalsFor, readUnitName, writtenDecimals } from '../present';
 import { convert, unitById, type UnitDef } from '../fields/units';
 import { toRange } from '../syntax/tree';
 import { formatAgainst, formatNumber } from '../util/format';
@@ -99,9 +99,17 @@ function bodySizeKg(at: TimepointContext): number | null {
   return sizes.length === 0 ? null : Math.min(...sizes);
 }
 
-/** The unit a value was read in, as a message writes it after a number: ` mmHg`, ` /min`; none for pH or a fraction. */
+/**
+ * The unit a value was read in, as a message writes it after a number: ` mmHg`, ` /min`, ` mbar`
+ * where the note wrote mbar for hPa (`readUnitName`); none for pH or a fraction.
+ */
 function unitSuffix(field: FieldDef, s: StatedValue): string {
-  return suffixOf(readUnitOf(field, s));
+  return suffixIn(readUnitOf(field, s), s);
+}
+
+/** `suffixOf`, with the read unit named as the note wrote it (`readUnitName`). */
+function suffixIn(unit: UnitDef | undefined, s: StatedValue): string {
+  return unit !== undefined && unit.id === s.readUnit && unit.id !== 'fraction' && unit.id !== 'ph' ? ` ${readUnitName(s)}` : suffixOf(unit);
 }
 
 /** A unit as a message writes it after a number: ` mmHg`; none for pH or a fraction. */
@@ -134,7 +142,7 @@ function describe(bounds: Bounds, field: FieldDef, s: StatedValue, canonicalToo 
 
 function describeIn(bounds: Bounds, field: FieldDef, s: StatedValue, unit: UnitDef | undefined, canonical: UnitDef | undefined): string {
   const inRead = (v: number) => (unit && canonical ? convert(v, canonical, unit) : v) ?? v;
-  const suffix = suffixOf(unit);
+  const suffix = suffixIn(unit, s);
   // The value as written, so that each bound keeps it on its side: a height of 47.1 in is not
   // "usually 47 in to 87 in" when the bound is 47.24 in (120 cm).
   const first = inRead(s.value ?? s.parts?.[0] ?? NaN);

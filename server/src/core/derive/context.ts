@@ -7,7 +7,7 @@ import type { InputValue, Timepoint, ValuesInForce } from '../analysis/model';
 import type { SectionId } from '../fields/sections';
 import { fieldById } from '../fields/registry';
 import { displayUnit } from '../analysis/read-value';
-import { givesNoSetPressure, noninvasiveSupport, supportOfPressure, type NoninvasiveSupport } from '../analysis/noninvasive-support';
+import { endExpiratoryField, givesNoSetPressure, givesPressure, noninvasiveSupport, supportOfPressure, type NoninvasiveSupport } from '../analysis/noninvasive-support';
 import type { Settings } from '../settings';
 import { formatNumber, wordList } from '../util/format';
 import { describeOrigin, kpaResolutionMmhg } from '../present';
@@ -379,24 +379,18 @@ export class DeriveContext {
   }
 
   /**
-   * PEEP in force: the ventilator's, else EPAP (NIV), else the CPAP level; neither of the last two
-   * beside a device that gives no set airway pressure (`oxygen mask, epap 6`: PN318).
+   * PEEP in force: the ventilator's, else the end-expiratory pressure of the oxygen line its device
+   * gives (`endExpiratoryField`: the CPAP level under `cpap`, else the EPAP, else the CPAP level);
+   * none the device does not give (`oxygen mask, epap 6`, `oxygen cpap ipap 14, epap 6`: PN318).
    */
   peepLike(): Term | null {
     const peep = this.field('peep', 'PEEP');
     if (peep) return peep;
-    const pressure = this.field('epap', 'EPAP') ?? this.field('cpap_level', 'CPAP');
-    // A pressure of 0 is none, which such a device agrees with: it is used (PN318 does not fire).
-    return pressure === null || (pressure.value !== 0 && this.pressureNotGiven() !== null) ? null : pressure;
-  }
-
-  /**
-   * Where the oxygen line in force names a device that gives no set airway pressure (PN318) and
-   * writes an EPAP or a CPAP level all the same: that device; else null.
-   */
-  private pressureNotGiven(): { word: string; input: InputValue } | null {
-    const device = this.word('device');
-    return device !== null && givesNoSetPressure(device.word) ? device : null;
+    const values = this.timepoint.values;
+    // Most timepoints have neither: asked without building a value.
+    if (values.numberOf('epap') === null && values.numberOf('cpap_level') === null) return null;
+    const id = endExpiratoryField(this.word('device')?.word ?? null, values);
+    return id === null ? null : this.field(id, id === 'epap' ? 'EPAP' : 'CPAP');
   }
 
   /** The non-invasive support of the oxygen line in force (`noninvasiveSupport`), or null. */
@@ -405,20 +399,21 @@ export class DeriveContext {
   }
 
   /**
-   * What to add for the end-expiratory pressure `peepLike` reads, where none is in force: under NIV
-   * or CPAP of an oxygen line, the EPAP or the CPAP level on that line (a `peep` would go on a vent
-   * line, and a vent line with a setting ends the support); beside a device that gives no set
-   * airway pressure, the device that gives the EPAP or CPAP level written there (PN318); else `peep`.
+   * What to add for the end-expiratory pressure `peepLike` reads, where none is in force: beside a
+   * device that does not give the EPAP or the CPAP level written there (PN318), a device that does;
+   * under NIV or CPAP of an oxygen line, the EPAP or the CPAP level on that line (a `peep` would go
+   * on a vent line, and a vent line with a setting ends the support); else `peep`.
    */
   peepNeed(): string {
-    const support = this.noninvasiveSupport();
-    if (support !== null) return END_EXPIRATORY_NEED[support];
-    // An EPAP or a CPAP level beside a device that gives none (PN318): the device is what to mend.
-    const device = this.pressureNotGiven();
+    const device = this.word('device');
     const pressure = device === null ? null : this.input('epap') ?? this.input('cpap_level');
-    if (device === null || pressure === null) return 'peep';
-    const written = pressure.stated.fieldId === 'epap' ? 'epap' : 'CPAP level';
-    return `a device that gives the ${written} on line ${pressure.stated.line + 1} (${supportOfPressure(pressure.stated.fieldId)}: ${device.word} gives no set airway pressure, see PN318)`;
+    if (device !== null && pressure !== null && pressure.stated.value !== 0 && !givesPressure(device.word, pressure.stated.fieldId)) {
+      const written = pressure.stated.fieldId === 'epap' ? 'epap' : 'CPAP level';
+      const given = givesNoSetPressure(device.word) ? 'no set airway pressure' : `no ${pressure.stated.fieldId === 'epap' ? 'EPAP' : 'CPAP level'}`;
+      return `a device that gives the ${written} on line ${pressure.stated.line + 1} (${supportOfPressure(pressure.stated.fieldId)}: ${device.word} gives ${given}, see PN318)`;
+    }
+    const support = this.noninvasiveSupport();
+    return support === null ? 'peep' : END_EXPIRATORY_NEED[support];
   }
 
   value(value: number | null, terms: readonly (Term | null)[], extra: ValueExtras = NO_EXTRAS): Outcome {

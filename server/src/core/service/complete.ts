@@ -28,7 +28,7 @@ import { parseLine } from '../syntax/parser';
 import type { ItemNode, LineNode } from '../syntax/tree';
 import type { Position, Range } from '../types';
 import { ITEM_COLUMN } from './format';
-import { supportOfDevice, SUPPORT_PRESSURE_FIELDS, SUPPORT_PRESSURES } from '../analysis/noninvasive-support';
+import { supportOfDevice, SUPPORT_PRESSURE_FIELDS, SUPPORT_PRESSURES, type NoninvasiveSupport } from '../analysis/noninvasive-support';
 import { NONE } from '../util/lists';
 import { isValidPosition, itemAt, lineAt, lineRange, timepointOfLine } from './locate';
 import { OSCILLATION_MODE } from '../physiology/mechanics';
@@ -100,10 +100,12 @@ function completionsOnLine(node: LineNode, position: Position, firstUnit: FirstU
   const used = usedFields(section.id, lineItems, wordStart);
   // The keys that go with the line's device: room air has no flow (PN310) and no pressure, and
   // only NIV has IPAP and EPAP, only CPAP a level.
-  if (section.id === 'oxygen') for (const id of notForDevice(deviceOfLine(lineItems))) used.add(id);
+  const device = section.id === 'oxygen' ? deviceOfLine(lineItems) : null;
+  if (section.id === 'oxygen') for (const id of notForDevice(device)) used.add(id);
+  const keysFirst = keysFirstFor(device);
   // Right after a comma (`hr 80,|`, a trigger character), a key is written after a blank, as the formatter writes it.
   const glued = wordStart > 0 && text.charCodeAt(wordStart - 1) === 0x2c;
-  const keys = () => narrow(keyCompletions(section.id, used, replace), typed).map((c) => (glued ? { ...c, insertText: ` ${c.insertText}` } : c));
+  const keys = () => narrow(keyCompletions(section.id, used, replace, keysFirst), typed).map((c) => (glued ? { ...c, insertText: ` ${c.insertText}` } : c));
   const last = chunks[chunks.length - 1]!;
   const afterComma = before.slice(last.span.end).includes(',');
   if (chunks.length === 1) {
@@ -318,6 +320,21 @@ function notForDevice(device: string | null): readonly string[] {
   return device === 'room air' ? ['o2_flow', ...others] : others;
 }
 
+/**
+ * Oxygen-line fields offered first beside a device: under NIV or CPAP (by the one rule of
+ * `noninvasiveSupport`) the support's pressures and the FiO2, which set it, before the flow (oxygen
+ * bled in, where the FiO2 is not set); none before the others beside another device or none.
+ */
+function keysFirstFor(device: string | null): readonly string[] {
+  const support = supportOfDevice(device);
+  return support === null ? NONE : SUPPORT_KEYS_FIRST[support];
+}
+
+const SUPPORT_KEYS_FIRST: Readonly<Record<NoninvasiveSupport, readonly string[]>> = {
+  niv: [...SUPPORT_PRESSURES.niv, 'fio2'],
+  cpap: [...SUPPORT_PRESSURES.cpap, 'fio2'],
+};
+
 /** Field ids stated on the line, except the item at the cursor (the one being typed). */
 function usedFields(section: SectionId, items: readonly ItemNode[], cursor: number): Set<string> {
   const used = new Set<string>();
@@ -346,13 +363,19 @@ function keyDetail(field: FieldDef): string {
 }
 
 /**
- * The keys of a section not yet used on the line: the section's own fields first (a vent line's
- * mode and settings before the FiO2 and end-tidal CO2 it shares with other lines), each group in
- * registry order.
+ * The keys of a section not yet used on the line: those of `first` in its order (the keys that set
+ * the line's device, `keysFirstFor`), then the section's own fields (a vent line's mode and settings
+ * before the FiO2 and end-tidal CO2 it shares with other lines), each group in registry order.
  */
-function keyCompletions(section: SectionId, used: ReadonlySet<string>, replace: Range): CompletionInfo[] {
+function keyCompletions(section: SectionId, used: ReadonlySet<string>, replace: Range, first: readonly string[] = NONE): CompletionInfo[] {
   const fields = fieldsInSection(section).filter((f) => !used.has(f.id));
-  return [...fields.filter((f) => f.sections[0] === section), ...fields.filter((f) => f.sections[0] !== section)]
+  const leading: FieldDef[] = [];
+  for (const id of first) {
+    const f = fields.find((x) => x.id === id);
+    if (f) leading.push(f);
+  }
+  const rest = leading.length === 0 ? fields : fields.filter((f) => !leading.includes(f));
+  return [...leading, ...rest.filter((f) => f.sections[0] === section), ...rest.filter((f) => f.sections[0] !== section)]
     .map((f) => ({ label: f.aliases[0] ?? f.id, kind: 'key' as const, detail: keyDetail(f), documentation: f.description, insertText: f.aliases[0] ?? f.id, replace }));
 }
 

@@ -35,10 +35,9 @@ import type { TextEdit } from '../types';
 import { applyEdits } from './text-edits';
 import type { LineSpan } from './types';
 
-/** Column (0-based) where items start after a section word. */
-export const ITEM_COLUMN = 10;
-/** Least number of spaces between content and a trailing comment. */
-export const COMMENT_GAP = 2;
+import { COMMENT_GAP, ITEM_COLUMN } from '../syntax/layout';
+
+export { COMMENT_GAP, ITEM_COLUMN };
 
 const BOM = '\uFEFF';
 

@@ -9,13 +9,13 @@
 import type { NoteResult } from '../check-note';
 import type { StatedValue, Timepoint } from '../analysis/model';
 import { displayUnit } from '../analysis/read-value';
-import { deviceWithoutPressure } from '../analysis/noninvasive-support';
+import { deviceWithoutPressure, supportOfDevice } from '../analysis/noninvasive-support';
 import { withheldText, type DerivedValue, type NotApplicable, type TimepointDerivation } from '../derive/model';
 import { derivedDef, withheldByReason } from '../derive/registry';
 import { shortAsName } from '../derive/context';
 import { fieldFor, fieldsInSection, loincFor, type FieldDef } from '../fields/registry';
 import { sectionById, type SectionId } from '../fields/sections';
-import { describeInput, formatAlternative, formatStated, statedInKpa } from '../present';
+import { describeInput, formatAlternative, formatStated, readUnitName, statedInKpa } from '../present';
 import type { SectionLine, TimepointLine } from '../syntax/tree';
 import type { Position } from '../types';
 import { formatNumber, formatShort, wordList } from '../util/format';
@@ -152,7 +152,7 @@ function unitText(result: NoteResult, s: StatedValue, field: FieldDef): string |
       ? `Unit ${code(s.item.unit.text)} does not measure ${escapeMarkdown(field.label)}, which takes ${allowed}.`
       : `Unit ${code(s.item.unit.text)} is not a unit Pneumark knows; ${escapeMarkdown(field.label)} takes ${allowed}.`;
   }
-  const read = s.readUnit === 'fraction' ? 'a fraction' : displayUnit(s.readUnit);
+  const read = s.readUnit === 'fraction' ? 'a fraction' : readUnitName(s);
   if (!s.unitImplied) return `Written in ${escapeMarkdown(read)}.`;
   let why = "the field's default unit";
   if (field.bare === 'gas') {
@@ -208,13 +208,15 @@ function usableText(s: StatedValue, field: FieldDef): string | null {
   return 'Not used in calculations: the value is outside what is possible.';
 }
 
-/** An IPAP, an EPAP or a CPAP level beside a device that gives no set airway pressure (PN318): why it is not used. */
+/** An IPAP, an EPAP or a CPAP level beside a device that does not give it (PN318): why it is not used. */
 function notGivenText(result: NoteResult, s: StatedValue): string | null {
   if (!s.usable || s.section !== 'oxygen') return null;
   const tp = timepointOfLine(result, s.line);
   const device = tp ? deviceWithoutPressure(tp.stated, s) : null;
   if (device === null) return null;
-  return `Not used in calculations: the device ${code(device.word ?? '')} gives no set airway pressure (PN318).`;
+  const support = supportOfDevice(device.word);
+  const gives = support === null ? 'gives no set airway pressure' : support === 'cpap' ? `gives one pressure, its level, and no ${s.fieldId === 'ipap' ? 'IPAP' : 'EPAP'}` : 'gives an IPAP and an EPAP, not one CPAP level';
+  return `Not used in calculations: the device ${code(device.word ?? '')} ${gives} (PN318).`;
 }
 
 function derivationOf(result: NoteResult, tp: Timepoint): TimepointDerivation | null {

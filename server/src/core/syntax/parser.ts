@@ -3,7 +3,7 @@
  * becomes a syntax issue on that node. Lines are parsed independently, so a changed line can
  * be re-parsed alone (see `parseLine`). Linear in the length of the text.
  */
-import { fieldFor, FIELDS, type FieldDef } from '../fields/registry';
+import { canonicalWord, fieldFor, FIELDS, type FieldDef } from '../fields/registry';
 import { SECTIONS, sectionByName, type SectionDef, type SectionId } from '../fields/sections';
 import { isKnownUnitSpelling, unitsForSpelling, UNITS } from '../fields/units';
 import { unitsWithin } from '../analysis/bounds';
@@ -28,6 +28,7 @@ import type {
   WordValue,
 } from './tree';
 import { NONE } from '../util/lists';
+import { renameKeepingColumns } from './layout';
 import { compact } from '../util/numbers';
 
 export interface LineSlice {
@@ -270,7 +271,7 @@ function parseLineUnsafe(text: string, line: number): LineNode {
     const strays: SyntaxIssue[] = [];
     strayCommas(body, chunks, false, false, strays);
     // Last: it may read the line again under a section, which reuses the lexer's words (`chunks`).
-    const issues = [unknownSectionIssue(sectionToken, body, line), ...strays];
+    const issues = [unknownSectionIssue(sectionToken, body, line, text), ...strays];
     return new UnknownNode(line, text, comment, sectionToken, rest, issues);
   }
   if (section.id === 'note') {
@@ -316,11 +317,12 @@ function keptIssues(issues: SyntaxIssue[]): readonly SyntaxIssue[] {
   return kept;
 }
 
-function unknownSectionIssue(first: Token, body: string, line: number): SyntaxIssue {
+function unknownSectionIssue(first: Token, body: string, line: number, text: string): SyntaxIssue {
   const word = first.text.toLowerCase();
+  // The section meant, with the items kept in the column they were laid out in (`renameKeepingColumns`).
   const fixes: LineFix[] = closest(word, SECTIONS.map((s) => s.id)).map((s) => ({
     title: `Change to \`${s}\``,
-    edits: [{ span: first.span, newText: s }],
+    edits: renameKeepingColumns(text, first.span, s),
   }));
   // A key written without its section, e.g. `hr 118`: offer the section that owns the key, when
   // the line reads cleanly under it (not `lac` alone, which would leave a key without a value).
@@ -1490,6 +1492,32 @@ function startsTwoWordUnit(first: string, second: Word): boolean {
   return (c === 0x6d /* m */ || c === 0x63 /* c */) && isKnownUnitSpelling(`${first} ${second.text}`);
 }
 
+const BILEVEL_PAIR = /^([0-9]+(?:\.[0-9]+)?)\/([0-9]+(?:\.[0-9]+)?)$/;
+
+/**
+ * A pair of pressures written without keys on an oxygen line whose device (so far) is NIV
+ * (`oxygen niv 16/6`): bilevel pressures are commonly written so, the inspiratory first (common
+ * practice, no source). Its keys (`ipap 16, epap 6`) where the first is the higher and the line
+ * writes neither key; else null (`6/16` and `8/8` leave the order open).
+ */
+function bilevelPairKeys(chunk: Word, chunks: readonly Word[], at: number, items: readonly (Item | undefined)[], count: number): string | null {
+  const pair = BILEVEL_PAIR.exec(chunk.text);
+  if (pair === null || !(Number(pair[1]) > Number(pair[2]))) return null;
+  const device = fieldFor('oxygen', 'device');
+  let niv = false;
+  for (let k = 0; k < count; k++) {
+    const item = items[k]!;
+    if (item.keyName === 'ipap' || item.keyName === 'epap') return null;
+    if (item.keyName === 'device' && device) niv = item.value?.kind === 'word' && canonicalWord(device, item.value.text) === 'niv';
+  }
+  if (!niv) return null;
+  for (let k = at + 1; k < chunks.length; k++) {
+    const word = chunks[k]!.text.toLowerCase();
+    if (word === 'ipap' || word === 'epap') return null;
+  }
+  return `ipap ${pair[1]}, epap ${pair[2]}`;
+}
+
 /** `source` is the text of the line (spans and numbers' texts refer to it). */
 function parseItems(section: SectionId, chunks: readonly Word[], start: number, issues: SyntaxIssue[], source: string): readonly ItemNode[] {
   let i = start;
@@ -1560,7 +1588,12 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
         while (i < n && chunks[i]!.start < feet.span.end) i++;
         continue;
       }
-      issues.push({ check: 'stray-text', span: chunk.span, message: `\`${chunk.text}\` has no key; write it as \`key value\`, e.g. \`hr 118\`.`, fixes: NONE });
+      const bilevel = section === 'oxygen' ? bilevelPairKeys(chunk, chunks, i, items, count) : null;
+      issues.push({
+        check: 'stray-text', span: chunk.span,
+        message: `\`${chunk.text}\` has no key; write it as \`key value\`, e.g. \`hr 118\`.${bilevel === null ? '' : ` Did you mean \`${bilevel}\`?`}`,
+        fixes: bilevel === null ? NONE : [{ title: `Write \`${bilevel}\``, edits: [{ span: chunk.span, newText: bilevel }] }],
+      });
       i++;
       continue;
     }

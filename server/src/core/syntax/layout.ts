@@ -1,0 +1,56 @@
+/**
+ * The columns of the canonical layout (the formatter, service/format.ts, writes lines so), and
+ * renames that keep them: a fix that puts the word meant in place of a misspelt one (a section
+ * word, PN101; a key or a device, PN201) changes the blanks beside it too, so that what was laid
+ * out in columns stays where it was.
+ */
+import type { Span } from './tree';
+
+/** Column (0-based) where items start after a section word. */
+export const ITEM_COLUMN = 10;
+/** Least number of spaces between content and a trailing comment. */
+export const COMMENT_GAP = 2;
+
+const SPACE = 0x20;
+
+/** A replacement within one line. */
+export interface LineEdit {
+  readonly span: Span;
+  readonly newText: string;
+}
+
+/**
+ * The edits that put `newText` in place of the word at `span` of the line `text` (the whole line,
+ * with its comment), keeping the columns the line was laid out in, as the formatter keeps them:
+ * - the first word of the line followed by spaces to where the formatter starts items (column 10,
+ *   or one space after a longer word): the new word padded so that the items start where the
+ *   formatter would start them after it;
+ * - a trailing comment set at least two spaces after the content: kept in its column while the
+ *   content still ends at least two columns before it, else two spaces after the content.
+ * Nothing else: blanks other than plain spaces, and a line not so laid out, are left as they are.
+ */
+export function renameKeepingColumns(text: string, span: Span, newText: string): readonly LineEdit[] {
+  let rename: LineEdit = { span, newText };
+  let next = span.end;
+  while (next < text.length && text.charCodeAt(next) === SPACE) next++;
+  const first = text.slice(0, span.start).trim() === '';
+  if (first && next > span.end && next < text.length && text.charAt(next) !== '#' && next === Math.max(ITEM_COLUMN, span.end + 1)) {
+    const end = span.start + newText.length;
+    rename = { span: { start: span.start, end: next }, newText: newText + ' '.repeat(Math.max(1, ITEM_COLUMN - end)) };
+  }
+  const comment = text.indexOf('#');
+  if (comment < rename.span.end) return [rename];
+  let contentEnd = comment;
+  while (contentEnd > rename.span.end && text.charCodeAt(contentEnd - 1) === SPACE) contentEnd--;
+  const gap = comment - contentEnd;
+  // A gap that is not all plain spaces (a tab before them) stops short of the content: left as it is.
+  if (gap < COMMENT_GAP || (contentEnd > rename.span.end && /\s/.test(text.charAt(contentEnd - 1)))) return [rename];
+  const change = rename.newText.length - (rename.span.end - rename.span.start);
+  const wanted = Math.max(COMMENT_GAP, gap - change);
+  if (wanted === gap) return [rename];
+  // Only the spaces that change: some inserted after the content, or some of those after it removed.
+  const blanks: LineEdit = wanted > gap
+    ? { span: { start: contentEnd, end: contentEnd }, newText: ' '.repeat(wanted - gap) }
+    : { span: { start: contentEnd, end: contentEnd + gap - wanted }, newText: '' };
+  return [rename, blanks];
+}
