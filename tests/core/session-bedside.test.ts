@@ -3,8 +3,22 @@
 import { describe, expect, it } from 'vitest';
 import { checkNote } from '../../server/src/core/check-note';
 import { NoteSession } from '../../server/src/core/session';
+import { codeActions } from '../../server/src/core/service/actions';
 import type { Settings } from '../../server/src/core/settings';
 import { sameAsJson, snapshot } from './session-snapshot';
+import type { NoteResult } from '../../server/src/core/check-note';
+
+/** The code actions offered with the cursor at each character of each line. */
+function actionsEverywhere(result: NoteResult): unknown[] {
+  const out: unknown[] = [];
+  for (const node of result.analysis.tree.lines) {
+    for (let character = 0; character <= node.text.length; character++) {
+      const at = { line: node.line, character };
+      out.push([at, codeActions(result, { start: at, end: at })]);
+    }
+  }
+  return out;
+}
 
 /** Opens the first text in a session, then updates it to each of the others; every result is compared with a fresh analysis. */
 function expectFreshThrough(texts: readonly string[], settings: Partial<Settings> = {}): NoteSession {
@@ -44,4 +58,39 @@ describe('NoteSession: lines added above a timepoint whose findings quote a labe
     expect(fresh?.related?.[0]?.message).toBe('FiO2 0.30 in force (carried from see line 7, line 2)');
     expectFreshThrough([before.join('\n'), after.join('\n'), before.join('\n')]);
   });
+});
+
+describe('NoteSession: code actions on a line read again though unchanged', () => {
+  // A line next to a change is read again (its terminator, or the character after it, is in the
+  // changed stretch), so the tree holds a new node for it; when its timepoint is kept, the values
+  // in force still hold the items of the node read before. The actions at a value must not care.
+  const cases: { name: string; before: string; after: string }[] = [
+    {
+      name: 'a line end changed on the blank line after a gas (LF to CRLF)',
+      before: '@ 08:00\nabg       7.33/45/82/23.1, etco2 40\n\n@ 09:00\nvitals    hr 80\n',
+      after: '@ 08:00\nabg       7.33/45/82/23.1, etco2 40\n\r\n@ 09:00\nvitals    hr 80\n',
+    },
+    {
+      name: 'the line end of a setting line changed (LF to CRLF)',
+      before: '@ 08:00\nvent      peep 12, fio2 0.6, map 18\n@ 09:00\nvitals    hr 80\n',
+      after: '@ 08:00\nvent      peep 12, fio2 0.6, map 18\r\n@ 09:00\nvitals    hr 80\n',
+    },
+    {
+      name: 'two lines far apart changed at once (a fix applied to the whole note)',
+      before: '@ 08:00\nvitals    hr 80.\n@ 09:00\nabg       7.33/45/82/23.1\n@ 10:00\nvitals    hr 81.\n',
+      after: '@ 08:00\nvitals    hr 80\n@ 09:00\nabg       7.33/45/82/23.1\n@ 10:00\nvitals    hr 81\n',
+    },
+  ];
+  for (const c of cases) {
+    it(c.name, () => {
+      const session = new NoteSession();
+      session.update(c.before);
+      const got = session.update(c.after);
+      const fresh = checkNote(c.after);
+      const offered = actionsEverywhere(fresh);
+      // Not vacuous: values on the unchanged lines are offered their unit written out, or in another unit.
+      expect(JSON.stringify(offered)).toMatch(/Write the unit|shorthand gas pressures in kPa/);
+      expect(actionsEverywhere(got)).toEqual(offered);
+    });
+  }
 });
