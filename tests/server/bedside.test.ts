@@ -14,8 +14,9 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Diagnostic, Hover, InlayHint, Position } from 'vscode-languageserver-protocol';
+import type { Diagnostic, Hover, InlayHint, Position, TextEdit } from 'vscode-languageserver-protocol';
 import { checkNote } from '../../server/src/core/check-note';
+import { formatEdits } from '../../server/src/core/service/format';
 import { lineTable } from '../../server/src/core/service/text-edits';
 import { shownEscaped } from '../../server/src/core/util/format';
 import { SUMMARY_REQUEST, TRENDS_REQUEST } from '../../server/src/protocol';
@@ -317,7 +318,7 @@ describe('a note closed and opened again', () => {
     await client.connection.sendNotification('textDocument/didClose', { textDocument: { uri } });
     const reopened = '@ 08:00\nvitals    hr 400\n';
     client.open(file, reopened);
-    const p = await client.diagnostics(uri, (d) => d.diagnostics.some((x) => /Heart rate 400/.test(x.message)));
+    const p = await client.diagnostics(uri, (d) => d.diagnostics.some((x) => String(x.message).includes('Heart rate 400')));
     expect(p.version).toBe(1);
     expect(published(p.diagnostics)).toEqual(findingsOf(reopened));
     // Nothing of the closed note's text came after the close: cleared, then the reopened note.
@@ -326,4 +327,50 @@ describe('a note closed and opened again', () => {
     expect(cleared).toBeGreaterThanOrEqual(0);
     for (const d of after.slice(cleared + 1)) expect(published(d.diagnostics)).toEqual(findingsOf(reopened));
   });
+});
+
+describe('formatting a big note', () => {
+  // A note of about 50,000 lines to format (a pasted note, formatted whole or as the pasted range,
+  // as an editor does with format-on-paste): formatted in steps, so another note is answered meanwhile.
+  const text = generateNote(10000).replaceAll('vitals    hr', 'vitals hr');
+  const lineCount = lineTable(text).starts.length;
+  let small = '';
+  let uri = '';
+  beforeAll(async () => {
+    small = client.open(path('bedside-beside-format.pneu'), '@ 08:00\nvitals    hr 80\n');
+    uri = client.open(path('bedside-format.pneu'), text);
+    await client.diagnostics(small);
+    await client.diagnostics(uri, undefined, 120_000);
+  }, 180_000);
+  const requests = [
+    { method: 'textDocument/formatting', params: {} },
+    { method: 'textDocument/rangeFormatting', params: { range: { start: { line: 0, character: 0 }, end: { line: lineCount, character: 0 } } } },
+  ];
+  for (const { method, params } of requests) {
+    it(`answers requests about another note while it computes ${method}, and gives the edits of the whole at once`, async () => {
+      let formatted = false;
+      const edits = client.connection.sendRequest<TextEdit[]>(method, { textDocument: { uri }, options: { tabSize: 2, insertSpaces: true }, ...params })
+        .then((e) => { formatted = true; return e; });
+      let answered = 0;
+      while (!formatted) {
+        const hover = await Promise.race([
+          client.connection.sendRequest<Hover | null>('textDocument/hover', { textDocument: { uri: small }, position: { line: 1, character: 10 } }),
+          edits.then(() => 'formatted' as const),
+        ]);
+        if (hover === 'formatted' || formatted) break;
+        expect(hover?.contents).toBeTruthy();
+        answered++;
+      }
+      expect(answered).toBeGreaterThanOrEqual(3);
+      const got = await edits;
+      expect(got.length).toBe(10000);
+      expect(got).toEqual(formatEdits(text));
+    }, 120_000);
+  }
+
+  it('gives no edits when the note changes before they are all computed (they would be for a text that is gone)', async () => {
+    const edits = client.connection.sendRequest<TextEdit[]>('textDocument/formatting', { textDocument: { uri }, options: { tabSize: 2, insertSpaces: true } });
+    await client.connection.sendNotification('textDocument/didChange', { textDocument: { uri, version: 2 }, contentChanges: [{ range: { start: { line: 0, character: 0 }, end: { line: 0, character: 0 } }, text: '# ' }] });
+    expect(await edits).toEqual([]);
+  }, 120_000);
 });
