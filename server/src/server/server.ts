@@ -19,6 +19,7 @@ import {
   type InlayHint,
   type InitializeResult,
   type Range,
+  type TextEdit,
   FoldingRangeKind,
 } from 'vscode-languageserver/node';
 import { TextDocument } from 'vscode-languageserver-textdocument';
@@ -130,6 +131,8 @@ export function formattedLines(range: Range): { start: number; end: number } | n
 /** Lines read in the first step of a big analysis, and the time each later step aims at. */
 const FIRST_STEP_LINES = 500;
 const STEP_BUDGET_MS = 25;
+/** Lines formatted in one go; more are formatted in steps (`formatInSteps`), the first of this many. */
+const FORMAT_STEP_LINES = 2000;
 
 /**
  * The size of the next step: scaled to the budget by the last step's time, within limits, and at
@@ -734,14 +737,50 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     return exceedsBytes(text, maxBytes) ? null : text;
   }
 
+  /**
+   * The edits that format lines `first` to `last` of the note (both inclusive), as `formatEdits`
+   * gives them. Many lines (a big note formatted whole, or a big paste formatted as it is pasted)
+   * are formatted in steps of about STEP_BUDGET_MS, with a turn of the event loop between them, so
+   * requests about other notes are answered meanwhile; lines are formatted one by one, so the
+   * steps' edits together are those of one call. No edits when the note changes or is closed
+   * before the last step: they would be for a text that is gone.
+   */
+  function formatInSteps(uri: string, text: string, first: number, last: number): TextEdit[] | Promise<TextEdit[]> {
+    if (last - first < FORMAT_STEP_LINES) return formatEdits(text, { start: first, end: last });
+    const version = documents.get(uri)?.version;
+    const edits: TextEdit[] = [];
+    let from = first;
+    let lines = FORMAT_STEP_LINES;
+    return new Promise<TextEdit[]>((resolve) => {
+      const step = () => {
+        if (documents.get(uri)?.version !== version) { resolve([]); return; }
+        try {
+          const started = performance.now();
+          const to = Math.min(last, from + lines - 1);
+          for (const e of formatEdits(text, { start: from, end: to })) edits.push(e);
+          from = to + 1;
+          lines = nextStepLines(lines, performance.now() - started);
+        } catch (error) {
+          connection.console.error(`pneumark: formatting failed: ${error instanceof Error ? error.stack ?? error.message : String(error)}`);
+          resolve([]);
+          return;
+        }
+        if (from > last) resolve(edits);
+        else setImmediate(step);
+      };
+      step();
+    });
+  }
+
   connection.onDocumentFormatting(guard('formatting', [], (params: { textDocument: { uri: string } }) => {
     const text = formattable(params.textDocument.uri);
-    return text === null ? [] : formatEdits(text);
+    const doc = documents.get(params.textDocument.uri);
+    return text === null || !doc ? [] : formatInSteps(doc.uri, text, 0, doc.lineCount - 1);
   }));
   connection.onDocumentRangeFormatting(guard('range formatting', [], (params: { textDocument: { uri: string }; range: Range }) => {
     const text = formattable(params.textDocument.uri);
     const lines = formattedLines(params.range);
-    return text === null || lines === null ? [] : formatEdits(text, lines);
+    return text === null || lines === null ? [] : formatInSteps(params.textDocument.uri, text, lines.start, lines.end);
   }));
 
   connection.onRequest(TRENDS_REQUEST, (params: TrendsParams) => afterReading(params.uri, null, () => guard('trends', null, (p: TrendsParams): TrendsResult | null => {

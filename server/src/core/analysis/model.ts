@@ -155,6 +155,18 @@ export function moveLineNames(shift: LineShift, text: string): string | null {
   return copied === 0 ? text : out + text.slice(copied);
 }
 
+/** Any shift: every line from the first on moves. */
+const EVERY_LINE_MOVES: LineShift = { head: 0, end: 0, delta: 1 };
+
+/**
+ * Whether `text` holds a line number as messages write one (`line N`), which `moveLineNames` would
+ * move: note text that has that shape (a timepoint labelled `see line 7`) and goes into a message
+ * unquoted cannot be told from a line number the message wrote.
+ */
+export function namesLine(text: string): boolean {
+  return moveLineNames(EVERY_LINE_MOVES, text) !== text;
+}
+
 function isWordChar(c: number): boolean {
   return (c >= 0x30 && c <= 0x39) || (c >= 0x41 && c <= 0x5a) || (c >= 0x61 && c <= 0x7a) || c === 0x5f;
 }

@@ -29,7 +29,9 @@
  * moved state a block hands on is the very state the next block's moved entry expects, and a
  * block read again (the changed one) keeps the moved copies of its previous held values when
  * they are equal. Not relocated, but read again: a block whose label is its line number (`@`
- * alone: `line 12`), and one whose read issues cannot be moved (see `moveLineNames`).
+ * alone: `line 12`), one whose read issues cannot be moved (see `moveLineNames`), and one that
+ * holds a value from a timepoint whose label reads like a line number (`@ 08:00 see line 7`: its
+ * findings may name that timepoint by its label, unquoted, see `namesLine`).
  */
 import { FIELDS, type FieldDef } from '../fields/registry';
 import { sectionById, type SectionId } from '../fields/sections';
@@ -39,7 +41,7 @@ import { MAX_DAY } from '../syntax/parser';
 import { OSCILLATION_MODE } from '../physiology/mechanics';
 import { barometricFromAltitude } from './ambient';
 import { noninvasiveSupport } from './noninvasive-support';
-import { moveLineNames, shiftedLine, type InputValue, type LineShift, type Origin, type StatedValue, type Timepoint, type TimepointTime, type ValuesInForce } from './model';
+import { moveLineNames, namesLine, shiftedLine, type InputValue, type LineShift, type Origin, type StatedValue, type Timepoint, type TimepointTime, type ValuesInForce } from './model';
 import type { ReadIssue } from './read-issues';
 import { readItem, type ReadContext } from './read-value';
 import { NONE } from '../util/lists';
@@ -222,6 +224,7 @@ export function buildTimelineIncremental(
  */
 class Relocator {
   private readonly copies = new Map<object, object>();
+  private readonly namingLines = new Map<HeldMap, boolean>();
 
   constructor(private readonly shift: LineShift) {}
 
@@ -238,6 +241,9 @@ class Relocator {
     // `@` alone is labelled with its line number: the label moves, and with it the held values' labels.
     if (first.kind !== 'timepoint' || (!first.label && !first.time)) return null;
     if (!sameTime(old.timeIn, time) || !sameState(this.state(old.stateIn), state)) return null;
+    // A finding may name where a value came from by its timepoint's label, unquoted (`carried from
+    // see line 7, line 2`): moved, the label's number would move too.
+    if (this.labelNamesLine(state)) return null;
     const result = old.result;
     const issues = result.issues.length === 0 ? result.issues : this.issues(result.issues);
     if (!issues) return null;
@@ -249,6 +255,24 @@ class Relocator {
 
   private line(line: number): number {
     return line < this.shift.end ? line : line + this.shift.delta;
+  }
+
+  /** Whether a value held in `state` was stated at a timepoint whose label names a line (see `namesLine`). */
+  private labelNamesLine(state: CarryState): boolean {
+    return this.mapNamesLine(state.patient) || this.mapNamesLine(state.place) || this.mapNamesLine(state.oxygen) || this.mapNamesLine(state.vent) ||
+      (state.gasUnit !== null && namesLine(state.gasUnit.label));
+  }
+
+  /** Per map, once per run: consecutive blocks mostly hand on the same maps. */
+  private mapNamesLine(m: HeldMap): boolean {
+    if (m.size === 0) return false;
+    let known = this.namingLines.get(m);
+    if (known === undefined) {
+      known = false;
+      for (const held of m.values()) if (namesLine(held.label)) { known = true; break; }
+      this.namingLines.set(m, known);
+    }
+    return known;
   }
 
   private timepoint(tp: Timepoint, state: CarryState): Timepoint {
@@ -780,12 +804,25 @@ function reuseEqual(state: MutableState, stateIn: CarryState, previous: CarrySta
   return new State(reuseMap(state.patient, previous.patient), reuseMap(state.place, previous.place), reuseMap(state.oxygen, previous.oxygen), reuseMap(state.vent, previous.vent), gasUnit);
 }
 
+/**
+ * Whether a held value reads as the one held before: the same item on the same line, read the same
+ * way. The unit it was read in counts too: an unchanged line under another `units gas` can give the
+ * same number read in another unit (`place barometric 0`).
+ */
 function sameHeld(a: Held, b: Held): boolean {
   if (a === b) return true;
   const s = a.stated;
   const t = b.stated;
   return a.timepoint === b.timepoint && a.label === b.label && s.item === t.item && s.line === t.line && s.fieldId === t.fieldId &&
-    s.value === t.value && s.word === t.word && s.unit === t.unit && s.usable === t.usable && s.unitDoubt === t.unitDoubt;
+    s.value === t.value && s.word === t.word && s.unit === t.unit && s.usable === t.usable && s.unitDoubt === t.unitDoubt &&
+    s.readUnit === t.readUnit && s.unitImplied === t.unitImplied && s.hereOnly === t.hereOnly && sameParts(s.parts, t.parts);
+}
+
+function sameParts(a: readonly number[] | null, b: readonly number[] | null): boolean {
+  if (a === b) return true;
+  if (a === null || b === null || a.length !== b.length) return false;
+  for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
+  return true;
 }
 
 /**

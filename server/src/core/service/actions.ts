@@ -15,7 +15,7 @@ import type { StatedValue } from '../analysis/model';
 import { checkByCodeOrAlias } from '../checks/registry';
 import type { FieldDef } from '../fields/registry';
 import { comparePositions, type Finding, type Fix, type Range, type TextEdit } from '../types';
-import { allStated, isValidPosition, itemAt, lineAt, statedOnLine, timepointOfLine } from './locate';
+import { allStated, isValidPosition, itemAt, lineAt, statedOf, timepointOfLine } from './locate';
 import { OSCILLATION_MODE } from '../physiology/mechanics';
 import { parseLine } from '../syntax/parser';
 import type { LineNode } from '../syntax/tree';
@@ -64,7 +64,7 @@ function valueActions(result: NoteResult, range: Range): ActionInfo[] {
   let onGas = node.section === 'units';
 
   if (hit) {
-    const stated = statedOnLine(result, line).find((s) => s.item === hit.item) ?? null;
+    const stated = statedOf(result, line, hit.item);
     if (stated) {
       onGas ||= stated.field.dimension === 'gas-pressure';
       if (hit.item.implied === 'shorthand') {

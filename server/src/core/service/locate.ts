@@ -90,7 +90,12 @@ export function statedOnLine(result: NoteResult, line: number): readonly StatedV
   return byLine.get(line) ?? NO_STATED;
 }
 
-/** The stated value read from an item (null when the item could not be read). */
+/**
+ * The stated value read from an item (null when the item could not be read). Not by identity
+ * alone: in an open note, a line read again though its text is unchanged (next to an edit, or
+ * between two edits made at once) is a new node, while its timepoint, kept, holds the values read
+ * from the node before; the same item is then the one at the same place with the same key.
+ */
 export function statedOf(result: NoteResult, line: number, item: ItemNode): StatedValue | null {
   for (const s of statedOnLine(result, line)) if (s.item === item || (s.item.span.start === item.span.start && s.item.keyName === item.keyName)) return s;
   return null;
