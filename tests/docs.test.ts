@@ -10,6 +10,9 @@ import { HB_MMOL_PER_L, UNITS } from '../server/src/core/fields/units';
 import { checkNote } from '../server/src/core/check-note';
 import { formatNote } from '../server/src/core/service';
 import { COLUMNS_END, COLUMNS_START, renderColumnTable } from '../server/src/core/export/docs';
+import { parseProjectConfig, projectConfigSchema } from '../server/src/core/config';
+import { HINT_CATEGORIES } from '../server/src/core/service/types';
+import { renderSettingsTable, SETTINGS_END, SETTINGS_START } from '../server/src/core/settings-docs';
 
 describe('check documentation', () => {
   it('is up to date with the registry (run `npm run docs` after changing a check)', () => {
@@ -52,6 +55,29 @@ describe('check documentation', () => {
   it('has a section per check at its anchor', () => {
     const text = renderCheckDocs();
     for (const c of CHECKS) expect(text).toContain(`<a id="${docAnchor(c)}"></a>`);
+  });
+});
+
+describe('the settings in README.md', () => {
+  const doc = readFileSync('README.md', 'utf8');
+  const section = /### `pneumark\.config\.json`\n([\s\S]*?)\n## /.exec(doc)?.[1] ?? '';
+
+  it('carry the current table of settings (run `npm run docs` after changing a setting)', () => {
+    expect(section).toContain(SETTINGS_START);
+    expect(replaceBetween(doc, SETTINGS_START, SETTINGS_END, renderSettingsTable())).toBe(doc);
+  });
+
+  it('name every key pneumark.config.json takes, each hint category, and every setting the extension contributes', () => {
+    const keys = [...Object.keys(projectConfigSchema.shape).filter((k) => k !== 'hints'), ...HINT_CATEGORIES.map((c) => `hints.${c}`)];
+    expect(keys.filter((k) => !section.includes(`\`${k}\``))).toEqual([]);
+    const manifest = JSON.parse(readFileSync('package.json', 'utf8')) as { contributes: { configuration: { properties: Record<string, unknown> } } };
+    expect(Object.keys(manifest.contributes.configuration.properties).filter((name) => !section.includes(`\`${name}\``))).toEqual([]);
+  });
+
+  it('show an example pneumark.config.json that is valid', () => {
+    const example = /```json\n([\s\S]*?)```/.exec(section)?.[1];
+    expect(example).toBeDefined();
+    expect(parseProjectConfig(example!).problems).toEqual([]);
   });
 });
 
