@@ -10,6 +10,8 @@ import { HB_MMOL_PER_L, UNITS } from '../server/src/core/fields/units';
 import { checkNote } from '../server/src/core/check-note';
 import { formatNote } from '../server/src/core/service';
 import { COLUMNS_END, COLUMNS_START, renderColumnTable } from '../server/src/core/export/docs';
+import { DERIVED } from '../server/src/core/derive/registry';
+import { fixtureFiles } from './helpers/expectations';
 import { parseProjectConfig, projectConfigSchema } from '../server/src/core/config';
 import { HINT_CATEGORIES } from '../server/src/core/service/types';
 import { renderSettingsTable, SETTINGS_END, SETTINGS_START } from '../server/src/core/settings-docs';
@@ -55,6 +57,30 @@ describe('check documentation', () => {
   it('has a section per check at its anchor', () => {
     const text = renderCheckDocs();
     for (const c of CHECKS) expect(text).toContain(`<a id="${docAnchor(c)}"></a>`);
+  });
+});
+
+describe('the table of derived values in grammar/README.md', () => {
+  it('gives every formula a value is worked out with under the default settings (its Formula column)', () => {
+    const documented = new Map(DERIVED.map((d) => [d.id, d.formula.replace(/[{}]/g, '')]));
+    const notes = [
+      ...fixtureFiles('tests/fixtures', 'samples').map((f) => f.text),
+      '@ 08:00\noxygen room air\nabg 7.50/47/90/36', // metabolic alkalosis: its own expected PaCO2
+      '@ 08:00\noxygen room air\nabg 7.21/24/95/9.5', // metabolic acidosis: Winters' formula
+      '@ 08:00\noxygen mask 8 L/min\nvitals spo2 94', // a simple mask's estimated FiO2
+      '@ 08:00\noxygen cannula 2 L/min\nvitals spo2 94',
+      'place altitude 3000 m\n@ 08:00\noxygen room air\nabg 7.45/32/60/22', // PB from the altitude
+      'place barometric 700 mmHg\n@ 08:00\noxygen room air\nabg 7.45/32/60/22', // PB as stated
+      '@ 08:00\noxygen room air\nabg 7.40/40/90/24', // sea level assumed
+    ];
+    const undocumented = new Set<string>();
+    for (const note of notes) {
+      const { analysis } = checkNote(note);
+      for (let i = 0; i < analysis.timeline.timepoints.length; i++) {
+        for (const d of analysis.derivation(i).derived) if (!documented.get(d.id)!.includes(d.formula)) undocumented.add(`${d.id}: ${d.formula}`);
+      }
+    }
+    expect([...undocumented]).toEqual([]);
   });
 });
 
