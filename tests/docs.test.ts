@@ -216,6 +216,10 @@ const SPEC_LINES: Readonly<Record<string, readonly string[] | { readonly on: str
   'gas kPa': [],
   'vt 450 L': ['PN301'],
   'vt 5 L': ['PN301'],
+  'pco2 40 ph 7.4': [],
+  'fio2 28': { on: 'vent fio2 28', codes: [] },
+  'spo2 0.94': ['PN302'],
+  'po2 9.1': ['PN204'],
 };
 /** Quoted shapes rather than lines: placeholders, or a section word named in a sentence. */
 const SPEC_TEMPLATES = new Set(['@ day N HH:MM', '@ HH:MM', '@ day N', 'units gas']);
@@ -226,13 +230,14 @@ describe('the note lines quoted in grammar/README.md', () => {
   const keys = new Set(FIELDS.flatMap((f) => f.aliases));
   const quoted = [...new Set([...doc.matchAll(/`([^`\n]+)`/g)].map((m) => m[1]!))].filter((span) => {
     if (!/\s/.test(span) && !span.startsWith('@ ')) return false;
-    const first = span.split(/[\s\d(]/)[0]!.toLowerCase();
+    // The first word whole: keys hold digits (`fio2 28`, `po2 9.1`).
+    const first = span.split(/[\s(]/)[0]!.toLowerCase();
     return span.startsWith('@ ') || sectionWords.has(first) || keys.has(first);
   });
   const lineOf = (example: string): string => {
     const entry = SPEC_LINES[example];
     if (entry && 'on' in entry) return entry.on;
-    const first = example.split(/[\s\d(]/)[0]!.toLowerCase();
+    const first = example.split(/[\s(]/)[0]!.toLowerCase();
     if (example.startsWith('@') || sectionWords.has(first)) return example;
     const section = SECTIONS.find((s) => s.kind !== 'prose' && keysInSection(s.id).includes(first));
     return `${section?.id ?? '?'} ${example}`;
@@ -269,5 +274,9 @@ describe('the note lines quoted in grammar/README.md', () => {
     }
     expect(read('vitals hr 118 rr 26')).toEqual(read('vitals hr 118, rr 26'));
     expect(read('vitals hr 80, rr 18.')).toEqual(read('vitals hr 80, rr 18'));
+    // `fio2 28` is 0.28; in `pco2 40 ph 7.4`, `ph` is the next key.
+    const stated = (line: string, id: string) => checkNote(`@ 08:00\n${line}`).analysis.timeline.timepoints[0]!.values.get(id)?.stated?.value;
+    expect(stated('vent fio2 28', 'fio2')).toBe(0.28);
+    expect([stated('abg pco2 40 ph 7.4', 'paco2'), stated('abg pco2 40 ph 7.4', 'ph')]).toEqual([40, 7.4]);
   });
 });
