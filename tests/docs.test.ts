@@ -15,6 +15,7 @@ import { fixtureFiles } from './helpers/expectations';
 import { parseProjectConfig, projectConfigSchema } from '../server/src/core/config';
 import { HINT_CATEGORIES } from '../server/src/core/service/types';
 import { renderSettingsTable, SETTINGS_END, SETTINGS_START } from '../server/src/core/settings-docs';
+import { HELP } from '../server/src/cli/args';
 
 describe('check documentation', () => {
   it('is up to date with the registry (run `npm run docs` after changing a check)', () => {
@@ -81,6 +82,17 @@ describe('the table of derived values in grammar/README.md', () => {
       }
     }
     expect([...undocumented]).toEqual([]);
+  });
+});
+
+describe('the command line in README.md', () => {
+  it('names every command and every option its help lists', () => {
+    const doc = readFileSync('README.md', 'utf8');
+    const commands = Object.keys(HELP).filter((k) => k !== 'main');
+    expect(commands.filter((c) => !doc.includes(`\`pneumark ${c}`))).toEqual([]);
+    const options = [...new Set(Object.values(HELP).flatMap((text) => [...text.matchAll(/(?<![\w-])--[a-z][a-z-]*/g)].map((m) => m[0])))];
+    expect(options.length).toBeGreaterThan(10);
+    expect(options.filter((o) => !doc.includes(`\`${o}`))).toEqual([]);
   });
 });
 
