@@ -16,6 +16,7 @@ import { parseProjectConfig, projectConfigSchema } from '../server/src/core/conf
 import { HINT_CATEGORIES } from '../server/src/core/service/types';
 import { renderSettingsTable, SETTINGS_END, SETTINGS_START } from '../server/src/core/settings-docs';
 import { HELP } from '../server/src/cli/args';
+import { isObservedField, observationCategory } from '../server/src/core/export/fhir';
 
 describe('check documentation', () => {
   it('is up to date with the registry (run `npm run docs` after changing a check)', () => {
@@ -93,6 +94,23 @@ describe('the command line in README.md', () => {
     const options = [...new Set(Object.values(HELP).flatMap((text) => [...text.matchAll(/(?<![\w-])--[a-z][a-z-]*/g)].map((m) => m[0])))];
     expect(options.length).toBeGreaterThan(10);
     expect(options.filter((o) => !doc.includes(`\`${o}`))).toEqual([]);
+  });
+});
+
+describe('the FHIR export in README.md', () => {
+  const doc = readFileSync('README.md', 'utf8').replace(/\s+/g, ' ');
+  const listAfter = (lead: string): string => (new RegExp(`${lead} \\(([^)]*)\\)`).exec(doc)?.[1] ?? '').toLowerCase();
+
+  it('names every field exported without a LOINC code, and every one in the therapy category', () => {
+    const observed = FIELDS.filter(isObservedField);
+    const uncoded = listAfter('as are fields with no LOINC code in the registry');
+    expect(uncoded.length).toBeGreaterThan(10);
+    const noCode = observed.filter((f) => !f.loinc && !f.loincBySection && !f.loincByKey).map((f) => f.label);
+    expect(noCode.filter((label) => !uncoded.includes(label.toLowerCase()))).toEqual([]);
+    const therapy = listAfter('the settings');
+    expect(therapy.length).toBeGreaterThan(10);
+    const settings = observed.filter((f) => observationCategory(f) === 'therapy').map((f) => f.label);
+    expect(settings.filter((label) => !therapy.includes(label.toLowerCase()))).toEqual([]);
   });
 });
 
