@@ -17,6 +17,9 @@ import { HINT_CATEGORIES } from '../server/src/core/service/types';
 import { renderSettingsTable, SETTINGS_END, SETTINGS_START } from '../server/src/core/settings-docs';
 import { HELP } from '../server/src/cli/args';
 import { isObservedField, observationCategory } from '../server/src/core/export/fhir';
+import { AA_UPPER_NORMAL_NO_AGE_MMHG, LOW_NORMAL_PAO2_MMHG, LOW_PIO2_MMHG, SEVERE_HYPOXAEMIA_MMHG, UPPER_NORMAL_PACO2_MMHG } from '../server/src/core/derive/interpret';
+import { HCO3_NORMAL_MMOL_L, PACO2_NORMAL_MMHG, PH_NORMAL } from '../server/src/core/physiology/acid-base';
+import { DEFAULT_SETTINGS } from '../server/src/core/settings';
 
 describe('check documentation', () => {
   it('is up to date with the registry (run `npm run docs` after changing a check)', () => {
@@ -83,6 +86,36 @@ describe('the table of derived values in grammar/README.md', () => {
       }
     }
     expect([...undocumented]).toEqual([]);
+  });
+});
+
+describe('the readings in grammar/README.md', () => {
+  const doc = readFileSync('grammar/README.md', 'utf8');
+  const bullet = (/- \*\*Readings\*\*([\s\S]*?)\n\n/.exec(doc)?.[1] ?? '').replace(/\s+/g, ' ');
+
+  it('explain each wording of an oxygenation and a ventilation reading, with the numbers it is read against', () => {
+    const gases = ['7.40/40/95/24.4', '7.40/40/70/24.4', '7.40/40/50/24.4', '7.40/40/35/24.4', '7.36/48/90/26.5', '7.25/68/70/29', '7.47/30/90/21.4'];
+    const notes = [
+      ...fixtureFiles('tests/fixtures', 'samples').map((f) => f.text),
+      ...gases.map((gas) => `@ 08:00\noxygen room air\nabg ${gas}`),
+      '@ 08:00\nvent mode VC, peep 8, fio2 0.6\nabg 7.38/42/90/24.3',
+    ];
+    const phrases = new Set<string>();
+    for (const note of notes) {
+      const { analysis } = checkNote(note);
+      for (let i = 0; i < analysis.timeline.timepoints.length; i++) {
+        for (const r of analysis.derivation(i).interpretations) {
+          if (r.topic !== 'oxygenation' && r.topic !== 'ventilation') continue;
+          const phrase = /consistent with (?:an? )?([^(,:.]+?)(?= \(|,|:|\.)/.exec(r.text)?.[1];
+          if (phrase) phrases.add(phrase);
+        }
+      }
+    }
+    expect(phrases.size).toBeGreaterThanOrEqual(9);
+    expect([...phrases].filter((p) => !bullet.includes(p))).toEqual([]);
+    const limits = [SEVERE_HYPOXAEMIA_MMHG, LOW_NORMAL_PAO2_MMHG, UPPER_NORMAL_PACO2_MMHG, LOW_PIO2_MMHG, AA_UPPER_NORMAL_NO_AGE_MMHG, DEFAULT_SETTINGS.hypoxaemiaBelowMmhg, DEFAULT_SETTINGS.hypercapniaAboveMmhg, DEFAULT_SETTINGS.hypocapniaBelowMmhg];
+    expect(limits.filter((n) => !bullet.includes(`${n} mmHg`))).toEqual([]);
+    expect(bullet).toContain(`pH ${PH_NORMAL.low.toFixed(2)}–${PH_NORMAL.high.toFixed(2)}, PaCO2 ${PACO2_NORMAL_MMHG.low}–${PACO2_NORMAL_MMHG.high} mmHg, HCO3 ${HCO3_NORMAL_MMOL_L.low}–${HCO3_NORMAL_MMOL_L.high} mmol/L`);
   });
 });
 
