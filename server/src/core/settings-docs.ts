@@ -82,7 +82,7 @@ export function renderSettingsTable(): string {
   return [
     SETTINGS_START,
     '',
-    'The keys of `pneumark.config.json`, each also a VS Code setting (`hints` is an object: `"hints": { "transport": true }`).',
+    'The keys of `pneumark.config.json` and the VS Code setting of each (`hints` is an object: `"hints": { "transport": true }`).',
     'A key the file leaves out takes the editor\'s setting, else its default; on the command line, the default.',
     '',
     '| Key | VS Code setting | Values | Default | What it changes |',
