@@ -163,6 +163,15 @@ describe('the settings in README.md', () => {
     expect(Object.keys(manifest.contributes.configuration.properties).filter((name) => !section.includes(`\`${name}\``))).toEqual([]);
   });
 
+  it('give the editor-only settings their default, range and choices', () => {
+    const manifest = JSON.parse(readFileSync('package.json', 'utf8')) as { contributes: { configuration: { properties: Record<string, { default: unknown; minimum?: number; maximum?: number; enum?: string[] }> } } };
+    const p = manifest.contributes.configuration.properties;
+    const text = section.replace(/\s+/g, ' ');
+    const debounce = p['pneumark.debounceMs']!;
+    expect(text).toContain(`\`pneumark.debounceMs\`, the milliseconds to wait after the last keystroke before a note is checked again (${String(debounce.default)} by default, ${String(debounce.minimum)} to ${String(debounce.maximum)})`);
+    expect(text).toContain(`\`pneumark.trace.server\` (${p['pneumark.trace.server']!.enum!.map((v, i, all) => `${i === all.length - 1 ? 'or ' : ''}\`${v}\``).join(', ').replace(', or', ' or')})`);
+  });
+
   it('show an example pneumark.config.json that is valid', () => {
     const example = /```json\n([\s\S]*?)```/.exec(section)?.[1];
     expect(example).toBeDefined();

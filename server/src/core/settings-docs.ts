@@ -6,6 +6,7 @@
  */
 import { z } from 'zod';
 import { CHECKS } from './checks/registry';
+import { projectConfigSchema } from './config';
 import { DERIVED } from './derive/registry';
 import { HINT_PICKS } from './service/hints';
 import { HINT_CATEGORIES, HINTS_OFF_BY_DEFAULT, type HintCategory } from './service/types';
@@ -78,7 +79,8 @@ export function renderSettingsTable(): string {
   for (const c of HINT_CATEGORIES) {
     rows.push(`| \`hints.${c}\` | \`pneumark.hints.${c}\` | \`true\` or \`false\` | \`${String(!HINTS_OFF_BY_DEFAULT.has(c))}\` | ${cell(hintMeaning(c))} |`);
   }
-  rows.push('| `$schema` | — | a text of at most 500 characters | — | For editors that check JSON files against a schema; Pneumark does not read it. |');
+  const schemaKey = projectConfigSchema.shape.$schema.unwrap();
+  rows.push(`| \`$schema\` | — | a text of at most ${String(schemaKey.maxLength)} characters | — | For editors that check JSON files against a schema; Pneumark does not read it. |`);
   return [
     SETTINGS_START,
     '',
