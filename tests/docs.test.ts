@@ -119,6 +119,25 @@ describe('the readings in grammar/README.md', () => {
   });
 });
 
+describe('the unit conversions the documents quote', () => {
+  it('agree with 1 kPa = 7.50062 mmHg to the decimals shown (`27 mmHg = 3.6 kPa`, `84.0 kPa = 630 mmHg`)', () => {
+    const decimals = (n: string) => n.split('.')[1]?.length ?? 0;
+    const wrong: string[] = [];
+    let seen = 0;
+    for (const file of ['README.md', 'grammar/README.md', 'docs/checks.md']) {
+      for (const m of readFileSync(file, 'utf8').matchAll(/(\d+(?:\.\d+)?) (mmHg|kPa) (?:=|is) (\d+(?:\.\d+)?) (mmHg|kPa)/g)) {
+        const [text, from, fromUnit, to, toUnit] = m as unknown as [string, string, string, string, string];
+        if (fromUnit === toUnit) continue;
+        seen++;
+        const converted = fromUnit === 'mmHg' ? Number(from) / 7.50062 : Number(from) * 7.50062;
+        if (converted.toFixed(decimals(to)) !== to) wrong.push(`${file}: ${text} (${converted.toFixed(3)})`);
+      }
+    }
+    expect(seen).toBeGreaterThan(3);
+    expect(wrong).toEqual([]);
+  });
+});
+
 describe('the command line in README.md', () => {
   it('names every command and every option its help lists', () => {
     const doc = readFileSync('README.md', 'utf8');
