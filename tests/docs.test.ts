@@ -10,6 +10,16 @@ import { HB_MMOL_PER_L, UNITS } from '../server/src/core/fields/units';
 import { checkNote } from '../server/src/core/check-note';
 import { formatNote } from '../server/src/core/service';
 import { COLUMNS_END, COLUMNS_START, renderColumnTable } from '../server/src/core/export/docs';
+import { DERIVED } from '../server/src/core/derive/registry';
+import { fixtureFiles } from './helpers/expectations';
+import { parseProjectConfig, projectConfigSchema } from '../server/src/core/config';
+import { HINT_CATEGORIES } from '../server/src/core/service/types';
+import { renderSettingsTable, SETTINGS_END, SETTINGS_START } from '../server/src/core/settings-docs';
+import { HELP } from '../server/src/cli/args';
+import { isObservedField, observationCategory } from '../server/src/core/export/fhir';
+import { AA_UPPER_NORMAL_NO_AGE_MMHG, LOW_NORMAL_PAO2_MMHG, LOW_PIO2_MMHG, SEVERE_HYPOXAEMIA_MMHG, UPPER_NORMAL_PACO2_MMHG } from '../server/src/core/derive/interpret';
+import { HCO3_NORMAL_MMOL_L, PACO2_NORMAL_MMHG, PH_NORMAL } from '../server/src/core/physiology/acid-base';
+import { DEFAULT_SETTINGS } from '../server/src/core/settings';
 
 describe('check documentation', () => {
   it('is up to date with the registry (run `npm run docs` after changing a check)', () => {
@@ -52,6 +62,139 @@ describe('check documentation', () => {
   it('has a section per check at its anchor', () => {
     const text = renderCheckDocs();
     for (const c of CHECKS) expect(text).toContain(`<a id="${docAnchor(c)}"></a>`);
+  });
+});
+
+describe('the table of derived values in grammar/README.md', () => {
+  it('gives every formula a value is worked out with under the default settings (its Formula column)', () => {
+    const documented = new Map(DERIVED.map((d) => [d.id, d.formula.replace(/[{}]/g, '')]));
+    const notes = [
+      ...fixtureFiles('tests/fixtures', 'samples').map((f) => f.text),
+      '@ 08:00\noxygen room air\nabg 7.50/47/90/36', // metabolic alkalosis: its own expected PaCO2
+      '@ 08:00\noxygen room air\nabg 7.21/24/95/9.5', // metabolic acidosis: Winters' formula
+      '@ 08:00\noxygen mask 8 L/min\nvitals spo2 94', // a simple mask's estimated FiO2
+      '@ 08:00\noxygen cannula 2 L/min\nvitals spo2 94',
+      'place altitude 3000 m\n@ 08:00\noxygen room air\nabg 7.45/32/60/22', // PB from the altitude
+      'place barometric 700 mmHg\n@ 08:00\noxygen room air\nabg 7.45/32/60/22', // PB as stated
+      '@ 08:00\noxygen room air\nabg 7.40/40/90/24', // sea level assumed
+    ];
+    const undocumented = new Set<string>();
+    for (const note of notes) {
+      const { analysis } = checkNote(note);
+      for (let i = 0; i < analysis.timeline.timepoints.length; i++) {
+        for (const d of analysis.derivation(i).derived) if (!documented.get(d.id)!.includes(d.formula)) undocumented.add(`${d.id}: ${d.formula}`);
+      }
+    }
+    expect([...undocumented]).toEqual([]);
+  });
+});
+
+describe('the readings in grammar/README.md', () => {
+  const doc = readFileSync('grammar/README.md', 'utf8');
+  const bullet = (/- \*\*Readings\*\*([\s\S]*?)\n\n/.exec(doc)?.[1] ?? '').replace(/\s+/g, ' ');
+
+  it('explain each wording of an oxygenation and a ventilation reading, with the numbers it is read against', () => {
+    const gases = ['7.40/40/95/24.4', '7.40/40/70/24.4', '7.40/40/50/24.4', '7.40/40/35/24.4', '7.36/48/90/26.5', '7.25/68/70/29', '7.47/30/90/21.4'];
+    const notes = [
+      ...fixtureFiles('tests/fixtures', 'samples').map((f) => f.text),
+      ...gases.map((gas) => `@ 08:00\noxygen room air\nabg ${gas}`),
+      '@ 08:00\nvent mode VC, peep 8, fio2 0.6\nabg 7.38/42/90/24.3',
+    ];
+    const phrases = new Set<string>();
+    for (const note of notes) {
+      const { analysis } = checkNote(note);
+      for (let i = 0; i < analysis.timeline.timepoints.length; i++) {
+        for (const r of analysis.derivation(i).interpretations) {
+          if (r.topic !== 'oxygenation' && r.topic !== 'ventilation') continue;
+          const phrase = /consistent with (?:an? )?([^(,:.]+?)(?= \(|,|:|\.)/.exec(r.text)?.[1];
+          if (phrase) phrases.add(phrase);
+        }
+      }
+    }
+    expect(phrases.size).toBeGreaterThanOrEqual(9);
+    expect([...phrases].filter((p) => !bullet.includes(p))).toEqual([]);
+    const limits = [SEVERE_HYPOXAEMIA_MMHG, LOW_NORMAL_PAO2_MMHG, UPPER_NORMAL_PACO2_MMHG, LOW_PIO2_MMHG, AA_UPPER_NORMAL_NO_AGE_MMHG, DEFAULT_SETTINGS.hypoxaemiaBelowMmhg, DEFAULT_SETTINGS.hypercapniaAboveMmhg, DEFAULT_SETTINGS.hypocapniaBelowMmhg];
+    expect(limits.filter((n) => !bullet.includes(`${n} mmHg`))).toEqual([]);
+    expect(bullet).toContain(`pH ${PH_NORMAL.low.toFixed(2)}–${PH_NORMAL.high.toFixed(2)}, PaCO2 ${PACO2_NORMAL_MMHG.low}–${PACO2_NORMAL_MMHG.high} mmHg, HCO3 ${HCO3_NORMAL_MMOL_L.low}–${HCO3_NORMAL_MMOL_L.high} mmol/L`);
+  });
+});
+
+describe('the unit conversions the documents quote', () => {
+  it('agree with 1 kPa = 7.50062 mmHg to the decimals shown (`27 mmHg = 3.6 kPa`, `84.0 kPa = 630 mmHg`)', () => {
+    const decimals = (n: string) => n.split('.')[1]?.length ?? 0;
+    const wrong: string[] = [];
+    let seen = 0;
+    for (const file of ['README.md', 'grammar/README.md', 'docs/checks.md']) {
+      for (const m of readFileSync(file, 'utf8').matchAll(/(\d+(?:\.\d+)?) (mmHg|kPa) (?:=|is) (\d+(?:\.\d+)?) (mmHg|kPa)/g)) {
+        const [text, from, fromUnit, to, toUnit] = m as unknown as [string, string, string, string, string];
+        if (fromUnit === toUnit) continue;
+        seen++;
+        const converted = fromUnit === 'mmHg' ? Number(from) / 7.50062 : Number(from) * 7.50062;
+        if (converted.toFixed(decimals(to)) !== to) wrong.push(`${file}: ${text} (${converted.toFixed(3)})`);
+      }
+    }
+    expect(seen).toBeGreaterThan(3);
+    expect(wrong).toEqual([]);
+  });
+});
+
+describe('the command line in README.md', () => {
+  it('names every command and every option its help lists', () => {
+    const doc = readFileSync('README.md', 'utf8');
+    const commands = Object.keys(HELP).filter((k) => k !== 'main');
+    expect(commands.filter((c) => !doc.includes(`\`pneumark ${c}`))).toEqual([]);
+    const options = [...new Set(Object.values(HELP).flatMap((text) => [...text.matchAll(/(?<![\w-])--[a-z][a-z-]*/g)].map((m) => m[0])))];
+    expect(options.length).toBeGreaterThan(10);
+    expect(options.filter((o) => !doc.includes(`\`${o}`))).toEqual([]);
+  });
+});
+
+describe('the FHIR export in README.md', () => {
+  const doc = readFileSync('README.md', 'utf8').replace(/\s+/g, ' ');
+  const listAfter = (lead: string): string => (new RegExp(`${lead} \\(([^)]*)\\)`).exec(doc)?.[1] ?? '').toLowerCase();
+
+  it('names every field exported without a LOINC code, and every one in the therapy category', () => {
+    const observed = FIELDS.filter(isObservedField);
+    const uncoded = listAfter('as are fields with no LOINC code in the registry');
+    expect(uncoded.length).toBeGreaterThan(10);
+    const noCode = observed.filter((f) => !f.loinc && !f.loincBySection && !f.loincByKey).map((f) => f.label);
+    expect(noCode.filter((label) => !uncoded.includes(label.toLowerCase()))).toEqual([]);
+    const therapy = listAfter('the settings');
+    expect(therapy.length).toBeGreaterThan(10);
+    const settings = observed.filter((f) => observationCategory(f) === 'therapy').map((f) => f.label);
+    expect(settings.filter((label) => !therapy.includes(label.toLowerCase()))).toEqual([]);
+  });
+});
+
+describe('the settings in README.md', () => {
+  const doc = readFileSync('README.md', 'utf8');
+  const section = /### `pneumark\.config\.json`\n([\s\S]*?)\n## /.exec(doc)?.[1] ?? '';
+
+  it('carry the current table of settings (run `npm run docs` after changing a setting)', () => {
+    expect(section).toContain(SETTINGS_START);
+    expect(replaceBetween(doc, SETTINGS_START, SETTINGS_END, renderSettingsTable())).toBe(doc);
+  });
+
+  it('name every key pneumark.config.json takes, each hint category, and every setting the extension contributes', () => {
+    const keys = [...Object.keys(projectConfigSchema.shape).filter((k) => k !== 'hints'), ...HINT_CATEGORIES.map((c) => `hints.${c}`)];
+    expect(keys.filter((k) => !section.includes(`\`${k}\``))).toEqual([]);
+    const manifest = JSON.parse(readFileSync('package.json', 'utf8')) as { contributes: { configuration: { properties: Record<string, unknown> } } };
+    expect(Object.keys(manifest.contributes.configuration.properties).filter((name) => !section.includes(`\`${name}\``))).toEqual([]);
+  });
+
+  it('give the editor-only settings their default, range and choices', () => {
+    const manifest = JSON.parse(readFileSync('package.json', 'utf8')) as { contributes: { configuration: { properties: Record<string, { default: unknown; minimum?: number; maximum?: number; enum?: string[] }> } } };
+    const p = manifest.contributes.configuration.properties;
+    const text = section.replace(/\s+/g, ' ');
+    const debounce = p['pneumark.debounceMs']!;
+    expect(text).toContain(`\`pneumark.debounceMs\`, the milliseconds to wait after the last keystroke before a note is checked again (${String(debounce.default)} by default, ${String(debounce.minimum)} to ${String(debounce.maximum)})`);
+    expect(text).toContain(`\`pneumark.trace.server\` (${p['pneumark.trace.server']!.enum!.map((v, i, all) => `${i === all.length - 1 ? 'or ' : ''}\`${v}\``).join(', ').replace(', or', ' or')})`);
+  });
+
+  it('show an example pneumark.config.json that is valid', () => {
+    const example = /```json\n([\s\S]*?)```/.exec(section)?.[1];
+    expect(example).toBeDefined();
+    expect(parseProjectConfig(example!).problems).toEqual([]);
   });
 });
 
@@ -164,6 +307,10 @@ const SPEC_LINES: Readonly<Record<string, readonly string[] | { readonly on: str
   'gas kPa': [],
   'vt 450 L': ['PN301'],
   'vt 5 L': ['PN301'],
+  'pco2 40 ph 7.4': [],
+  'fio2 28': { on: 'vent fio2 28', codes: [] },
+  'spo2 0.94': ['PN302'],
+  'po2 9.1': ['PN204'],
 };
 /** Quoted shapes rather than lines: placeholders, or a section word named in a sentence. */
 const SPEC_TEMPLATES = new Set(['@ day N HH:MM', '@ HH:MM', '@ day N', 'units gas']);
@@ -174,13 +321,14 @@ describe('the note lines quoted in grammar/README.md', () => {
   const keys = new Set(FIELDS.flatMap((f) => f.aliases));
   const quoted = [...new Set([...doc.matchAll(/`([^`\n]+)`/g)].map((m) => m[1]!))].filter((span) => {
     if (!/\s/.test(span) && !span.startsWith('@ ')) return false;
-    const first = span.split(/[\s\d(]/)[0]!.toLowerCase();
+    // The first word whole: keys hold digits (`fio2 28`, `po2 9.1`).
+    const first = span.split(/[\s(]/)[0]!.toLowerCase();
     return span.startsWith('@ ') || sectionWords.has(first) || keys.has(first);
   });
   const lineOf = (example: string): string => {
     const entry = SPEC_LINES[example];
     if (entry && 'on' in entry) return entry.on;
-    const first = example.split(/[\s\d(]/)[0]!.toLowerCase();
+    const first = example.split(/[\s(]/)[0]!.toLowerCase();
     if (example.startsWith('@') || sectionWords.has(first)) return example;
     const section = SECTIONS.find((s) => s.kind !== 'prose' && keysInSection(s.id).includes(first));
     return `${section?.id ?? '?'} ${example}`;
@@ -217,5 +365,9 @@ describe('the note lines quoted in grammar/README.md', () => {
     }
     expect(read('vitals hr 118 rr 26')).toEqual(read('vitals hr 118, rr 26'));
     expect(read('vitals hr 80, rr 18.')).toEqual(read('vitals hr 80, rr 18'));
+    // `fio2 28` is 0.28; in `pco2 40 ph 7.4`, `ph` is the next key.
+    const stated = (line: string, id: string) => checkNote(`@ 08:00\n${line}`).analysis.timeline.timepoints[0]!.values.get(id)?.stated?.value;
+    expect(stated('vent fio2 28', 'fio2')).toBe(0.28);
+    expect([stated('abg pco2 40 ph 7.4', 'paco2'), stated('abg pco2 40 ph 7.4', 'ph')]).toEqual([40, 7.4]);
   });
 });

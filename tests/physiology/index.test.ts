@@ -44,6 +44,13 @@ describe('physiology index', () => {
     }
   });
 
+  it('every citation says how it is known: recalled (from memory), common practice with no source, or what of it was read', () => {
+    // A reference recalled and not checked must say so (the hovers, `show` and the format spec quote it).
+    const KNOWN = /from memory|common practice|no source|not read here|read in its/;
+    const unmarked = Object.entries(physiology.SOURCES).filter(([, citation]) => !KNOWN.test(citation)).map(([key]) => key);
+    expect(unmarked).toEqual([]);
+  });
+
   const KEY = /`([a-z0-9]+(?:-[a-z0-9]+)+)`/g;
 
   function moduleText(name: string): string {

@@ -4,7 +4,9 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { z } from 'zod';
-import { HINT_CATEGORIES } from '../../server/src/core/service/types';
+import { DERIVED } from '../../server/src/core/derive/registry';
+import { HINT_PICKS } from '../../server/src/core/service/hints';
+import { HINT_CATEGORIES, HINTS_OFF_BY_DEFAULT } from '../../server/src/core/service/types';
 import { DEFAULT_SETTINGS, settingsSchema } from '../../server/src/core/settings';
 import { clientSettingsSchema, DEFAULT_CLIENT_SETTINGS, readClientSettings } from '../../server/src/server/settings';
 
@@ -84,6 +86,14 @@ describe('the contributed settings', () => {
       expect(p.description !== undefined && p.markdownDescription !== undefined, `${name} has two descriptions`).toBe(false);
       if (p.enum) expect(p.enumDescriptions?.length, name).toBe(p.enum.length);
       expect(p.scope, name).toMatch(/^(resource|window)$/);
+    }
+    // Each hint category names every value its hints show (by the derived value's label), and
+    // whether it is off by default.
+    for (const c of HINT_CATEGORIES) {
+      const text = (properties[`pneumark.hints.${c}`]?.description ?? '').toLowerCase();
+      const unnamed = HINT_PICKS[c].map((p) => DERIVED.find((d) => d.id === p.id)!.label).filter((label) => !text.includes(label.toLowerCase()));
+      expect(unnamed, c).toEqual([]);
+      expect(text.includes('off by default'), c).toBe(HINTS_OFF_BY_DEFAULT.has(c));
     }
     // Thresholds are in mmHg whatever the note's unit: they say so, with the kPa value.
     expect(properties['pneumark.hypoxaemiaBelowMmhg']?.markdownDescription).toMatch(/in mmHg, also for notes written in kPa \(60 mmHg is 8\.0 kPa\)/);

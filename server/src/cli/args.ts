@@ -115,7 +115,7 @@ Prints (or writes) the documentation of every check, generated from the check re
 Options:
   --write FILE               write it to FILE instead of standard output
   --grammar FILE             regenerate the generated tables in FILE (grammar/README.md)
-  --readme FILE              regenerate the export columns in FILE (README.md)`,
+  --readme FILE              regenerate the export columns and the settings in FILE (README.md)`,
 };
 
 export class UsageError extends Error {}

@@ -15,6 +15,7 @@ import { ConfigReport, reportConfigProblems } from './config-report';
 import { renderCheckDocs } from '../core/checks/docs';
 import { replaceBetween, withGeneratedTables } from '../core/fields/docs';
 import { COLUMNS_END, COLUMNS_START, renderColumnTable } from '../core/export/docs';
+import { renderSettingsTable, SETTINGS_END, SETTINGS_START } from '../core/settings-docs';
 import { colourWanted, paint, type Paint } from './colour';
 import { runExport, exportRenderer } from './export-command';
 import { runFmt } from './fmt-command';
@@ -160,7 +161,7 @@ function docs(args: readonly string[], io: Io): number {
   const at = (path: string) => resolve(io.cwd, path);
   // Files to update are read first, so a path that cannot be read leaves every file as it was.
   const grammar = opts.grammar === undefined ? null : { path: opts.grammar, text: withGeneratedTables(readText(at(opts.grammar), opts.grammar, '--grammar')) };
-  const readme = opts.readme === undefined ? null : { path: opts.readme, text: replaceBetween(readText(at(opts.readme), opts.readme, '--readme'), COLUMNS_START, COLUMNS_END, renderColumnTable()) };
+  const readme = opts.readme === undefined ? null : { path: opts.readme, text: replaceBetween(replaceBetween(readText(at(opts.readme), opts.readme, '--readme'), COLUMNS_START, COLUMNS_END, renderColumnTable()), SETTINGS_START, SETTINGS_END, renderSettingsTable()) };
   const text = renderCheckDocs();
   if (opts.write !== undefined) writeText(at(opts.write), opts.write, text, '--write');
   else io.stdout.write(text);

@@ -7,7 +7,7 @@
  */
 import { z } from 'zod';
 import { settingProblem, unknownCheckNames, unknownCheckSentence, type ParsedConfig } from '../core/config';
-import { HINT_CATEGORIES, type HintCategory } from '../core/service/types';
+import { HINT_CATEGORIES, HINTS_OFF_BY_DEFAULT, type HintCategory } from '../core/service/types';
 import { settingsSchema, withDefaults, type Settings } from '../core/settings';
 
 /** The most `pneumark.maxNoteSizeKb` may be (see its schema). */
@@ -118,7 +118,7 @@ export function effectiveSettings(client: ClientSettings, project: ParsedConfig 
   const analysis = withDefaults({ ...client.analysis, ...(project?.settings ?? {}) });
   const hints = new Set<HintCategory>();
   for (const c of HINT_CATEGORIES) {
-    const on = project?.hints[c] ?? client.hints[c] ?? c !== 'transport';
+    const on = project?.hints[c] ?? client.hints[c] ?? !HINTS_OFF_BY_DEFAULT.has(c);
     if (on) hints.add(c);
   }
   return { analysis, hints, debounceMs: client.debounceMs, maxNoteBytes: client.maxNoteSizeKb * 1024 };

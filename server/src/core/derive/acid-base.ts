@@ -184,7 +184,8 @@ export const paco2Expected = defineDerived({
   unit: 'mmHg',
   decimals: 0,
   category: 'acid-base',
-  formula: '1.5 × {HCO3} + 8 ± 2',
+  // Both forms, as the table in grammar/README.md gives them; a value names the one it used.
+  formula: '1.5 × {HCO3} + 8 ± 2 (acidosis) | 40 + 0.7 × ({HCO3} − 24) ± 2 (alkalosis)',
   source: `Acidosis: ${SOURCES['winters-1967']} Alkalosis: ${SOURCES['berend-2014']}`,
   anchors: ['ph', 'hco3'],
   compute(c) {
@@ -195,7 +196,7 @@ export const paco2Expected = defineDerived({
     if (withheld) return withheld;
     if (cls.primary === 'metabolic-acidosis') {
       const r = expectedPaco2MetabolicAcidosis(hco3.value);
-      return r ? c.value(r.centre, [hco3], { range: r, notes: ["Winters' formula"], decimals: rangeDecimals(r, 0, c.field('paco2')?.value) }) : c.value(null, []);
+      return r ? c.value(r.centre, [hco3], { range: r, formula: '1.5 × {HCO3} + 8 ± 2', notes: ["Winters' formula"], decimals: rangeDecimals(r, 0, c.field('paco2')?.value) }) : c.value(null, []);
     }
     if (cls.primary === 'metabolic-alkalosis') {
       const r = expectedPaco2MetabolicAlkalosis(hco3.value);

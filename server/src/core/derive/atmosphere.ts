@@ -13,7 +13,9 @@ export const barometric = defineDerived({
   unit: 'mmHg',
   decimals: 0,
   category: 'atmosphere',
-  formula: '{PB}',
+  // Each way the pressure is had, as the table in grammar/README.md gives them (the standard
+  // atmosphere is a setting); a value names the one it used.
+  formula: 'PB as stated | exp(6.63268 − 0.1112 × {altitude}/1000 − 0.00149 × ({altitude}/1000)²) | PB assumed at sea level',
   source: `Stated, or estimated from the altitude. Default model: ${SOURCES['west-1996']} Other model: ${SOURCES['us-standard-atmosphere-1976']}`,
   anchors: ['barometric', 'altitude', 'pao2'],
   compute(c) {

@@ -87,7 +87,8 @@ export const fio2Estimated = defineDerived({
   unit: '',
   decimals: 2,
   category: 'oxygenation',
-  formula: '0.21 + 0.04 × {flow}',
+  // Each device's rule, as the table in grammar/README.md gives them; a value names its own.
+  formula: '0.21 + 0.04 × {flow} (cannula) | 0.35 + 0.04 × ({flow} − 5) (simple mask)',
   source: `${SOURCES['nasal-cannula-fio2']} ${SOURCES['simple-mask-fio2']}`,
   anchors: ['device', 'o2_flow'],
   compute(c) {

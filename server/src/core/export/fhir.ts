@@ -56,8 +56,8 @@
  * section: vitals → vital-signs; abg, vbg and labs → laboratory (and the P/F ratio, a blood-gas
  * index); oxygen and vent → therapy for settings (FiO2, oxygen flow, tidal volume, PEEP, pressure
  * support and inspiratory flow are settings of the treatment, not measurements of the patient, and
- * their codes name settings; likewise the set rate, the oscillation amplitude, IPAP, EPAP and
- * CPAP, which have no code) and
+ * their codes name settings; likewise the set rate, the set inspiratory pressure, the oscillation
+ * amplitude, IPAP, EPAP and CPAP, which have no code) and
  * none for what is read off the ventilator (plateau, peak and mean airway pressure, minute volume:
  * the mechanics of the ventilated lung as the machine measures them, neither a setting nor one of
  * FHIR's vital signs, and their codes name measurements `--on ventilator`; but the mean airway

@@ -20,6 +20,9 @@ export type HintCategory = DerivedCategory;
 
 export const HINT_CATEGORIES: readonly HintCategory[] = ['oxygenation', 'acid-base', 'mechanics', 'atmosphere', 'transport'];
 
+/** The categories whose hints are off unless a setting turns them on (the others are on). */
+export const HINTS_OFF_BY_DEFAULT: ReadonlySet<HintCategory> = new Set<HintCategory>(['transport']);
+
 /** A line range, both ends inclusive. */
 export interface LineSpan {
   readonly start: number;
