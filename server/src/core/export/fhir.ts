@@ -96,7 +96,7 @@ import { unitById } from '../fields/units';
 import type { SectionId } from '../fields/sections';
 import { assertExportOptions, writtenLabel } from './columns';
 import { exportedNumber } from './precision';
-import { stableHex128, stableUuid } from './stable-id';
+import { stableHex128, StableIds } from './stable-id';
 import { unitForPeople } from './units';
 
 export interface FhirOptions {
@@ -422,8 +422,10 @@ export function toFhirBundle(path: string, result: NoteResult, options: FhirOpti
   const entries: FhirBundleEntry[] = [];
   /** fullUrl of each field Observation by the stated value it comes from (`statedKey`), for derivedFrom. */
   const fullUrls = new Map<string, string>();
+  // Every fullUrl's text starts with the note's key: read once.
+  const ids = new StableIds(`${noteKey}\u0000`);
   const add = (place: Place, what: string, resource: Omit<FhirObservation, 'id'>): string => {
-    const fullUrl = `urn:uuid:${stableUuid(`${noteKey}\u0000${place.key}\u0000${what}`)}`;
+    const fullUrl = `urn:uuid:${ids.uuid(`${place.key}\u0000${what}`)}`;
     const { resourceType, ...rest } = resource;
     entries.push({ fullUrl, resource: { resourceType, id: `obs-${place.key}-${idPart(what)}`, ...rest } });
     return fullUrl;
