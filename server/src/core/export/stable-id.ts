@@ -52,8 +52,12 @@ function finalised(state: number): number {
   return h >>> 0;
 }
 
+/** The two lower-case hex digits of each byte. */
+const HEX_BYTE: readonly string[] = Array.from({ length: 256 }, (_, b) => b.toString(16).padStart(2, '0'));
+
+/** The 8 hex digits of a 32-bit number, from a table: `toString(16)` is a slow generic conversion in V8. */
 function hex8(n: number): string {
-  return n.toString(16).padStart(8, '0');
+  return HEX_BYTE[n >>> 24]! + HEX_BYTE[(n >>> 16) & 0xff]! + HEX_BYTE[(n >>> 8) & 0xff]! + HEX_BYTE[n & 0xff]!;
 }
 
 const START = new Fnv4();
