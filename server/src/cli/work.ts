@@ -4,7 +4,7 @@
  * output needs. Everything returned is plain data, so it crosses a worker boundary by structured clone.
  */
 import { dirname, isAbsolute, join } from 'node:path';
-import { checkNote, type NoteResult } from '../core/check-note';
+import { checkNote, type CheckOptions, type NoteResult } from '../core/check-note';
 import type { Settings } from '../core/settings';
 import type { Finding, Severity } from '../core/types';
 import { notePseudonym } from '../core/export/pseudonym';
@@ -35,6 +35,8 @@ export interface FileReport {
   /** `export`: what the format needs for this note (rows, lines or a bundle). */
   readonly payload?: unknown;
 }
+
+const KEEP_DERIVATIONS: CheckOptions = { keepDerivations: true };
 
 export type ExportRenderer = (path: string, result: NoteResult, task: Extract<Task, { kind: 'export' }>) => unknown;
 
@@ -87,7 +89,8 @@ export class NoteWorker {
     const note: NoteInput = noteFromBytes(read);
     if (note.text === null) return { path: note.path, problem: note.problem, findings: [] };
     if (isBlankNote(note.text)) return { path: note.path, problem: NO_NOTE, findings: [] };
-    const result = checkNote(note.text, this.settingsFor(path));
+    // An export reads every timepoint's derived values: it finishes the derivations the checks began.
+    const result = checkNote(note.text, this.settingsFor(path), task.kind === 'export' ? KEEP_DERIVATIONS : undefined);
     if (task.kind === 'check') {
       const timepoints = task.timepoints ? { timepoints: timepointsJson(result) } : {};
       // `--quiet` shows errors only and counts the rest: only the counts of the others are kept

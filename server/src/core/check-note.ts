@@ -24,6 +24,7 @@ import { ownString } from './util/strings';
 import { NONE } from './util/lists';
 import { keptFor, SmallStore, type Kept } from './util/small-store';
 import { derivationOf } from './derive/registry';
+import type { TimepointDerivation } from './derive/model';
 
 export interface NoteResult {
   readonly analysis: NoteAnalysis;
@@ -32,9 +33,26 @@ export interface NoteResult {
   readonly settings: Settings;
 }
 
-export function checkNote(text: string, settings: Partial<Settings> = {}): NoteResult {
+export interface CheckOptions {
+  /**
+   * Keep the derivation of each timepoint the checks made (with the derived values they read)
+   * in the result's `analysis.derivation`, for a caller that reads every timepoint's derived values
+   * next (an export): it then finishes what the checks began instead of deriving every timepoint
+   * again. Only for notes of up to `KEEP_DERIVATIONS_UP_TO` timepoints; a bigger one derives
+   * on request as always, so that it does not hold all its derivations at once.
+   */
+  readonly keepDerivations?: boolean;
+}
+
+/**
+ * The most timepoints of a note whose derivations `keepDerivations` keeps: far above a day's note
+ * (the bench notes have 5 to 35), and few enough that the kept derivations stay some megabytes.
+ */
+export const KEEP_DERIVATIONS_UP_TO = 4096;
+
+export function checkNote(text: string, settings: Partial<Settings> = {}, options?: CheckOptions): NoteResult {
   const full = withDefaults(settings);
-  return runChecks(analyseText(text, full), full);
+  return runChecks(analyseText(text, full), full, CHECKS, undefined, options?.keepDerivations === true);
 }
 
 export function checkTree(tree: NoteTree, settings: Partial<Settings> = {}): NoteResult {
@@ -48,7 +66,7 @@ export function checkTree(tree: NoteTree, settings: Partial<Settings> = {}): Not
  */
 export type TimepointFindingsCache = WeakMap<Timepoint, readonly Finding[]>;
 
-export function runChecks(analysis: NoteAnalysis, settings: Settings, checks: readonly CheckDef[] = CHECKS, cache?: TimepointFindingsCache): NoteResult {
+export function runChecks(analysis: NoteAnalysis, settings: Settings, checks: readonly CheckDef[] = CHECKS, cache?: TimepointFindingsCache, keepDerivations = false): NoteResult {
   const findings: Finding[] = [];
   const disabled = new Set(settings.disabledChecks.map((d) => d.toLowerCase()));
   const enabled = checks.filter((c) => !disabled.has(c.code.toLowerCase()) && !disabled.has(c.alias));
@@ -89,6 +107,7 @@ export function runChecks(analysis: NoteAnalysis, settings: Settings, checks: re
     shared<T>(value: Kept<T, TimepointContext>): T { return keptFor(timepointShared, value, ctx); },
   };
   const timepoints = analysis.timeline.timepoints;
+  const kept = keepDerivations && timepoints.length <= KEEP_DERIVATIONS_UP_TO ? new Array<TimepointDerivation | undefined>(timepoints.length) : null;
   for (let i = 0; i < timepoints.length; i++) {
     const timepoint = timepoints[i]!;
     const known = cache?.get(timepoint);
@@ -98,6 +117,7 @@ export function runChecks(analysis: NoteAnalysis, settings: Settings, checks: re
     }
     ctx.timepoint = timepoint;
     ctx.derivation = analysis.derivation(i);
+    if (kept !== null) kept[i] = ctx.derivation;
     timepointShared.clear();
     // Without a cache the timepoint's findings go straight into the note's list (sorted below):
     // no list per timepoint to make and copy. With one they are gathered in `gathered`, and the
@@ -121,7 +141,13 @@ export function runChecks(analysis: NoteAnalysis, settings: Settings, checks: re
   }
   // Codes are ASCII (`PN410`): compared by code unit, the same order on every machine and locale.
   findings.sort((a, b) => comparePositions(a.range.start, b.range.start) || (a.code < b.code ? -1 : a.code > b.code ? 1 : 0));
-  return { analysis, findings, settings };
+  return { analysis: kept === null ? analysis : withDerivations(analysis, kept), findings, settings };
+}
+
+/** The analysis with the derivations the checks made (a timepoint with none is derived when asked, as always). */
+function withDerivations(analysis: NoteAnalysis, kept: readonly (TimepointDerivation | undefined)[]): NoteAnalysis {
+  const derive = analysis.derivation;
+  return { tree: analysis.tree, timeline: analysis.timeline, derivation: (index) => kept[index] ?? derive(index) };
 }
 
 /**

@@ -15,7 +15,8 @@ export interface NoteAnalysis {
    * Derived values and interpretations of the timepoint at `index`, computed when asked and not
    * kept: they are a pure function of the timepoint and the settings, cheap for one timepoint,
    * and a big note would otherwise hold tens of thousands of them. Callers ask for the
-   * timepoints they show (a hover, the visible hints, one export row at a time).
+   * timepoints they show (a hover, the visible hints, one export row at a time). A result of
+   * `checkNote` with `keepDerivations` (an export's) answers with the derivations its checks made.
    */
   readonly derivation: (index: number) => TimepointDerivation;
 }

@@ -99,7 +99,7 @@ import { unitById } from '../fields/units';
 import type { SectionId } from '../fields/sections';
 import { assertExportOptions, writtenLabel } from './columns';
 import { exportedNumber } from './precision';
-import { stableHex128, stableUuid } from './stable-id';
+import { stableHex128, StableIds } from './stable-id';
 import { unitForPeople } from './units';
 
 export interface FhirOptions {
@@ -372,8 +372,26 @@ function quantity(value: number, unitId: string): FhirQuantity | null {
   return { value: exported, unit: unitForPeople(unitId) ?? unit.id, system: UCUM, code: unit.ucum };
 }
 
-function categoryOf(category: ObservationCategory | null): { category?: readonly FhirCodeableConcept[] } {
-  return category ? { category: [{ coding: [{ system: CATEGORY_SYSTEM, code: category, display: CATEGORY_DISPLAY[category] }] }] } : {};
+/** An Observation while it is made, its members added in the order they are written. */
+type ObservationParts = { -readonly [K in keyof FhirObservation]?: FhirObservation[K] };
+
+/**
+ * The members every Observation starts with, in order: resourceType, id, status, category (when
+ * it has one), code, effectiveDateTime (when known). Added one by one rather than spread from
+ * objects made for the purpose, which costs more than the rest of the Observation; the order of
+ * the members is that of the JSON.
+ */
+function observationStart(id: string, category: ObservationCategory | null, code: FhirCodeableConcept, place: Place): ObservationParts {
+  const observation: ObservationParts = { resourceType: 'Observation', id, status: 'final' };
+  if (category) observation.category = [{ coding: [{ system: CATEGORY_SYSTEM, code: category, display: CATEGORY_DISPLAY[category] }] }];
+  observation.code = code;
+  if (place.effective) observation.effectiveDateTime = place.effective;
+  return observation;
+}
+
+/** The `id` of an Observation: `obs-<timepoint>-<what>`, with `-` for `_` (see the header comment). */
+function observationId(place: Place, what: string): string {
+  return `obs-${place.key}-${idPart(what)}`;
 }
 
 interface Place {
@@ -389,32 +407,41 @@ interface Place {
   readonly support: NoninvasiveSupport | null;
 }
 
-/** The Observation of one stated value; null when the field is not exported or has no usable number. */
-function fieldObservation(field: FieldDef, input: InputValue, place: Place): Omit<FhirObservation, 'id'> | null {
+/**
+ * The Observation of one stated value (`what`: the last part of its id); null when the field is
+ * not exported or has no usable number.
+ */
+function fieldObservation(field: FieldDef, input: InputValue, place: Place, what: string): FhirObservation | null {
   // A reading field's value held as a setting (a mean airway pressure set in HFOV) is a setting here.
   const reading = field.reading === true && input.stated.hereOnly;
   // A ventilator's FiO2, a blood gas sodium, a value written as tco2 have codes of their own; a code that does not fit is left out.
   const loinc = fhirLoinc(field, input.stated.section, { key: input.stated.item.keyName, device: place.device, mode: place.mode, support: place.support, reading });
   const unitId = input.stated.unit;
   if (!isObservedField(field) || !input.stated.usable || unitId === null) return null;
-  const base = {
-    resourceType: 'Observation' as const,
-    status: 'final' as const,
-    ...categoryOf(observationCategory(field, reading)),
-    code: { ...(loinc ? { coding: [{ system: LOINC, code: loinc.code, display: loinc.display }] } : {}), text: field.label },
-    ...(place.effective ? { effectiveDateTime: place.effective } : {}),
-  };
-  const note = [{ text: place.note }];
+  let s: FhirQuantity | null = null;
+  let d: FhirQuantity | null = null;
+  let q: FhirQuantity | null = null;
   if (field.kind === 'pair') {
     const [systolic, diastolic] = input.stated.parts ?? [];
-    const s = finite(systolic) ? quantity(systolic, unitId) : null;
-    const d = finite(diastolic) ? quantity(diastolic, unitId) : null;
+    s = finite(systolic) ? quantity(systolic, unitId) : null;
+    d = finite(diastolic) ? quantity(diastolic, unitId) : null;
     if (!s || !d) return null;
-    return { ...base, note, component: [{ code: { coding: [SYSTOLIC] }, valueQuantity: s }, { code: { coding: [DIASTOLIC] }, valueQuantity: d }] };
+  } else {
+    const value = input.stated.value;
+    q = finite(value) ? quantity(value, unitId) : null;
+    if (!q) return null;
   }
-  const value = input.stated.value;
-  const q = finite(value) ? quantity(value, unitId) : null;
-  return q ? { ...base, valueQuantity: q, note } : null;
+  const code: FhirCodeableConcept = loinc ? { coding: [{ system: LOINC, code: loinc.code, display: loinc.display }], text: field.label } : { text: field.label };
+  const observation = observationStart(observationId(place, what), observationCategory(field, reading), code, place);
+  const note = [{ text: place.note }];
+  if (s && d) {
+    observation.note = note;
+    observation.component = [{ code: { coding: [SYSTOLIC] }, valueQuantity: s }, { code: { coding: [DIASTOLIC] }, valueQuantity: d }];
+  } else {
+    observation.valueQuantity = q!;
+    observation.note = note;
+  }
+  return observation as FhirObservation;
 }
 
 const idPart = (id: string): string => id.replace(/_/g, '-');
@@ -434,10 +461,11 @@ export function toFhirBundle(path: string, result: NoteResult, options: FhirOpti
   const entries: FhirBundleEntry[] = [];
   /** fullUrl of each field Observation by the stated value it comes from (`statedKey`), for derivedFrom. */
   const fullUrls = new Map<string, string>();
-  const add = (place: Place, what: string, resource: Omit<FhirObservation, 'id'>): string => {
-    const fullUrl = `urn:uuid:${stableUuid(`${noteKey}\u0000${place.key}\u0000${what}`)}`;
-    const { resourceType, ...rest } = resource;
-    entries.push({ fullUrl, resource: { resourceType, id: `obs-${place.key}-${idPart(what)}`, ...rest } });
+  // Every fullUrl's text starts with the note's key: read once.
+  const ids = new StableIds(`${noteKey}\u0000`);
+  const add = (place: Place, what: string, resource: FhirObservation): string => {
+    const fullUrl = `urn:uuid:${ids.uuid(`${place.key}\u0000${what}`)}`;
+    entries.push({ fullUrl, resource });
     return fullUrl;
   };
 
@@ -451,7 +479,7 @@ export function toFhirBundle(path: string, result: NoteResult, options: FhirOpti
   const headerPlace: Place = { key: 'header', effective: null, note: 'Pneumark note header (describes the patient for the whole note)', device: null, mode: null, support: null };
   for (const field of FIELDS) {
     const input = header.get(field.id);
-    const resource = input ? fieldObservation(field, input, headerPlace) : null;
+    const resource = input ? fieldObservation(field, input, headerPlace, field.id) : null;
     if (resource) add(headerPlace, field.id, resource);
   }
 
@@ -473,15 +501,16 @@ export function toFhirBundle(path: string, result: NoteResult, options: FhirOpti
     for (const field of FIELDS) {
       const input = tp.values.get(field.id);
       if (input && input.origin.kind === 'here') {
-        const resource = fieldObservation(field, input, place);
+        const resource = fieldObservation(field, input, place, field.id);
         if (resource) fullUrls.set(statedKey(field.id, input.stated), add(place, field.id, resource));
       }
       // The same field stated here in another section too (a ventilator's FiO2 beside the gas's
       // sampling FiO2, sodium on a blood gas and on a labs line): each is an Observation of its own.
       if (!repeated?.has(field.id)) continue;
       for (const other of alsoStated(tp, field.id, input?.stated)) {
-        const resource = fieldObservation(field, other, place);
-        if (resource) fullUrls.set(statedKey(field.id, other.stated), add(place, `${field.id}_${other.stated.section}`, resource));
+        const what = `${field.id}_${other.stated.section}`;
+        const resource = fieldObservation(field, other, place, what);
+        if (resource) fullUrls.set(statedKey(field.id, other.stated), add(place, what, resource));
       }
     }
     const pf = derivedValueOf(result.analysis.derivation(tp.index), 'pf_ratio');
@@ -549,7 +578,7 @@ function alsoStated(tp: Timepoint, fieldId: string, inForce: StatedValue | undef
   return out;
 }
 
-function pfObservation(pf: DerivedValue, place: Place, fullUrls: ReadonlyMap<string, string>): Omit<FhirObservation, 'id'> | null {
+function pfObservation(pf: DerivedValue, place: Place, fullUrls: ReadonlyMap<string, string>): FhirObservation | null {
   const q = quantity(pf.value, 'mmHg');
   if (!q) return null;
   const references: { reference: string }[] = [];
@@ -559,14 +588,9 @@ function pfObservation(pf: DerivedValue, place: Place, fullUrls: ReadonlyMap<str
     const url = origin.kind === 'here' || origin.kind === 'carried' ? fullUrls.get(statedKey(term.fieldId, origin)) : undefined;
     if (url && !references.some((r) => r.reference === url)) references.push({ reference: url });
   }
-  return {
-    resourceType: 'Observation',
-    status: 'final',
-    ...categoryOf('laboratory'),
-    code: { coding: [PF_RATIO], text: pf.label },
-    ...(place.effective ? { effectiveDateTime: place.effective } : {}),
-    valueQuantity: q,
-    ...(references.length ? { derivedFrom: references } : {}),
-    note: [{ text: place.note }],
-  };
+  const observation = observationStart(observationId(place, pf.id), 'laboratory', { coding: [PF_RATIO], text: pf.label }, place);
+  observation.valueQuantity = q;
+  if (references.length) observation.derivedFrom = references;
+  observation.note = [{ text: place.note }];
+  return observation as FhirObservation;
 }
