@@ -133,6 +133,9 @@ describe('writing out the unit a bare value was read in', () => {
     expect(after('abg po2 7|1', 'Write the unit it was read in')).toBe('abg po2 71 mmHg');
     expect(after(note('units gas kPa', 'abg po2 9.|5'), 'Write the unit it was read in')).toBe(note('units gas kPa', 'abg po2 9.5 kPa'));
     expect(after('vitals hr 8|0', 'Write the unit it was read in')).toBe('vitals hr 80 /min');
+    // A bracketed mean glued to the pair stays apart from the unit written (`mmHg(` would read as a word).
+    expect(after('vitals bp 120/8|0(93)', 'Write the unit it was read in')).toBe('vitals bp 120/80 mmHg (93)');
+    expect(checkNote(after('vitals bp 120/8|0(93)', 'Write the unit it was read in')).findings).toEqual([]);
     expect(after('abg 7.28/5|6/71/26', 'Write the unit the shorthand pressures were read in')).toBe('abg 7.28/56/71/26 mmHg');
   });
 

@@ -143,10 +143,12 @@ function addUnitAction(result: NoteResult, s: StatedValue): ActionInfo[] {
   // value alone (a device's flow) or in its brackets (the mean after a blood pressure).
   const written = `${s.item.value.text} ${unit}`;
   const shown = s.item.key !== null ? `${s.item.key.text} ${written}` : s.item.implied === 'bracketed-mean' ? `(${written})` : written;
+  // A bracket glued to the number (`bp 120/80(93)`) is kept apart from the unit: `mmHg(` would read as a word.
+  const glued = lineAt(result, s.line)?.text.charCodeAt(end) === 0x28;
   return [{
     title: `Write the unit it was read in: ${shown}`,
     kind: 'refactor.rewrite',
-    edits: [{ range: { start: { line: s.line, character: end }, end: { line: s.line, character: end } }, newText: ` ${unit}` }],
+    edits: [{ range: { start: { line: s.line, character: end }, end: { line: s.line, character: end } }, newText: glued ? ` ${unit} ` : ` ${unit}` }],
   }];
 }
 
