@@ -77,9 +77,10 @@ Options:
 Options:
   --format csv|jsonl|fhir    csv: one row per timepoint with a header; jsonl: one JSON object per
                              timepoint; fhir: one FHIR R4 Bundle of Observations per note (a JSON array)
-  --redact                   drop free text from the export (timepoint labels; in JSON Lines, finding
-                             messages become the check's title), and name each note by its place
-                             in the run (note-00001 …, paths sorted) instead of its file name
+  --redact                   keep only Pneumark's own words: drop timepoint labels, write a mode
+                             it does not know as [redacted], in JSON Lines the check's title for
+                             each finding's message, and name each note by its place in the run
+                             (note-00001 …, paths sorted) instead of its file name
   --shift-days N             add N days to every day number and time (day, FHIR times; not
                              offset_minutes), for de-identification;
                              N a whole number from -100000 to 100000, e.g. --shift-days -3

@@ -45,7 +45,9 @@
  * - label is the text written after the timepoint's time, empty when there is none.
  *
  * Options:
- * - redactProse: the label column is left empty (labels are free text and may hold identifiers).
+ * - redactProse: the label column is left empty (labels are free text and may hold identifiers),
+ *   and a word of a field that takes any word (`mode`) is `REDACTED_WORD` unless Pneumark knows it:
+ *   only Pneumark's own words (field words, units, keys, check titles) are written.
  * - shiftDays: N days are added to `day` and N × 1440 to `minutes`, so a shared dataset need not
  *   keep the note's real day numbers; `offset_minutes` is unchanged. N must be a whole number.
  */
@@ -246,7 +248,12 @@ function fieldColumns(field: FieldDef, index: number, onlySection: SectionId | n
     return [{ ...base, name: field.id, description: `${field.label}: ${field.description} The unit the bare gas pressures stated at the timepoint were read in (a \`units gas\` line counts from its line on), else the note's \`units gas\` in force at the end of the timepoint, else the gasUnit setting.`, unit: null, ucum: null, type: 'string', part: null, cell: (c) => c.gasUnit }];
   }
   if (field.kind === 'word') {
-    return [{ ...base, name: field.id, description: `${field.label}: ${field.description}`, unit: null, ucum: null, type: 'string', part: null, cell: (c) => c.inputs[index]?.stated.word ?? null }];
+    const own = ownWords(field);
+    const open = own !== null ? `${field.label}: ${field.description} With \`--redact\`, a word Pneumark does not know is \`${REDACTED_WORD}\`.` : `${field.label}: ${field.description}`;
+    return [{ ...base, name: field.id, description: open, unit: null, ucum: null, type: 'string', part: null, cell: (c) => {
+      const word = c.inputs[index]?.stated.word ?? null;
+      return word !== null && own !== null && c.options.redactProse && !own.has(word) ? REDACTED_WORD : word;
+    } }];
   }
   const unitId = field.unit ?? '';
   const unit = unitForPeople(unitId);
@@ -291,6 +298,18 @@ function fieldColumns(field: FieldDef, index: number, onlySection: SectionId | n
     section,
     cell: section === null ? (c) => finite(c.inputs[index]?.stated.value) : (c) => statedInSection(c.timepoint, field.id, section),
   }];
+}
+
+/**
+ * What `--redact` writes in place of a word the note's writer chose: a word of a field that takes
+ * any word (a ventilator mode Pneumark does not know, `mode Smithvent`) may be a person's or a
+ * place's name. Fixed, so that a reader sees a word was written; described in README.md.
+ */
+export const REDACTED_WORD = '[redacted]';
+
+/** The words Pneumark knows for a field that takes any word (its canonical spellings); null for a field that takes only those. */
+function ownWords(field: FieldDef): ReadonlySet<string> | null {
+  return field.openWords ? new Set(Object.values(field.words ?? {})) : null;
 }
 
 /** The word a column of a field stated on another kind of line takes after the field's id. */
