@@ -117,7 +117,7 @@ describe('--anchor', () => {
 
 describe('CSV read back equals the analysis, value by value', () => {
   interface JsonValue { field: string; value: number | string | number[] | null; usable: boolean; origin: { kind: string; line?: number } }
-  interface JsonDerived { id: string; value: number; low?: number; high?: number }
+  interface JsonDerived { id: string; value: number; low?: number; high?: number; inputs?: { name: string; value: number }[] }
   interface JsonTimepoint { index: number; values: JsonValue[]; derived: JsonDerived[] }
   interface JsonFile { path: string; timepoints: JsonTimepoint[] }
 
@@ -157,6 +157,11 @@ describe('CSV read back equals the analysis, value by value', () => {
             if (c.section !== null && inForce?.origin.line !== undefined && sectionOfLine(file.path, inForce.origin.line) !== c.section) continue;
             const v = values.get(c.source!) ?? null;
             expected = Array.isArray(v) ? v[c.part === 'diastolic' ? 1 : 0] ?? null : v;
+          } else if (c.kind === 'in-force') {
+            // The FiO2 the calculations used, where one of them (P/F, PiO2, S/F …) names it among its inputs.
+            const used = tp.derived.flatMap((d) => d.inputs ?? []).find((i) => i.name === 'FiO2');
+            if (used === undefined) continue;
+            expected = used.value;
           } else {
             const d = derived.get(c.source!);
             expected = d === undefined ? null : c.part === 'low' ? d.low ?? null : c.part === 'high' ? d.high ?? null : d.value;

@@ -45,6 +45,7 @@ describe('the column list', () => {
       // Added later: after every earlier column.
       'mechanical_power_surrogate_J_min', 'amplitude_cmH2O', 'base_excess_venous_mmol_L',
       'mean_arterial_pressure_mmHg', 'paco2_etco2_difference_mmHg', 'mean_bp_mmHg', 'insp_pressure_cmH2O',
+      'fio2_in_force',
     ]);
   });
 

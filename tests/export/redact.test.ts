@@ -46,6 +46,11 @@ const WORDS = 18;
 /** One fixed set of words, the mode of the first timepoint as first reported (`mode Smithvent`). */
 const FIXED_WORDS = ['Zoqujy', 'Quxovi', 'Xovuzo', 'Wojoky', 'Kozuqi', 'Juqoxy', 'Vowizu', 'Zizuvo', 'Quvuji', 'Smithvent', 'Kizoqu', 'Xuzivy', 'Vuqoji', 'Jixuzo', 'Wiwuky', 'Zuxovi', 'Qojyzu', 'Kyzoxu'];
 const FORMATS = ['csv', 'jsonl', 'fhir'] as const;
+/** What the export writes for one note, as the command makes it (a string; '' when nothing). */
+function exported(path: string, result: ReturnType<typeof checkNote>, t: ReturnType<typeof task>): string {
+  const out = exportRenderer(path, result, t);
+  return typeof out === 'string' ? out : '';
+}
 const task = (format: (typeof FORMATS)[number]) => ({ kind: 'export' as const, format, redactProse: true, shiftDays: 0, anchor: null, spreadsheetSafe: false });
 
 describe('--redact keeps no word the note\'s writer chose', () => {
@@ -53,7 +58,7 @@ describe('--redact keeps no word the note\'s writer chose', () => {
     fc.assert(fc.property(fc.array(nameLike, { minLength: WORDS, maxLength: WORDS }), (words) => {
       const result = checkNote(noteWith(words));
       for (const format of FORMATS) {
-        const out = exportRenderer('note-00001', result, task(format)) ?? '';
+        const out = exported('note-00001', result, task(format));
         for (const w of words) expect(out.toLowerCase(), `${format}: ${w}`).not.toContain(w.toLowerCase());
       }
     }), { numRuns: 40, examples: [[FIXED_WORDS]] });
@@ -61,9 +66,9 @@ describe('--redact keeps no word the note\'s writer chose', () => {
 
   it('a mode Pneumark does not know is the placeholder; the ones it knows are kept', () => {
     const result = checkNote('@ day 1 08:00\nvent mode Smithvent, vt 420\n@ day 1 09:00\nvent mode simv\n');
-    const rows = (exportRenderer('note-00001', result, task('jsonl')) ?? '').trim().split('\n').map((l) => JSON.parse(l) as { mode: string | null });
+    const rows = exported('note-00001', result, task('jsonl')).trim().split('\n').map((l) => JSON.parse(l) as { mode: string | null });
     expect(rows.map((r) => r.mode)).toEqual([REDACTED_WORD, 'SIMV']);
-    const open = (exportRenderer('a.pneu', result, { ...task('jsonl'), redactProse: false }) ?? '').trim().split('\n').map((l) => JSON.parse(l) as { mode: string | null });
+    const open = exported('a.pneu', result, { ...task('jsonl'), redactProse: false }).trim().split('\n').map((l) => JSON.parse(l) as { mode: string | null });
     expect(open.map((r) => r.mode)).toEqual(['Smithvent', 'SIMV']);
   });
 

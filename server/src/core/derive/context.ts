@@ -68,6 +68,19 @@ export function isRoomAirContradiction(fio2: InputValue, values: ValuesInForce):
   return values.get('device')?.stated.word === 'room air';
 }
 
+/**
+ * The FiO2 the calculations use, as a plain number (what `DerivationContext.fio2` gives as a term):
+ * the FiO2 in force (a sampling FiO2 on the gas line, else the ventilator's, else the oxygen
+ * line's), else 0.21 when the device is room air; null when none is, on a room-air line with an
+ * oxygen flow (PN310) or with an FiO2 above 0.21 (PN316). Estimates are never used.
+ */
+export function fio2InForce(values: ValuesInForce): number | null {
+  const fio2 = values.get('fio2');
+  if (fio2 && fio2.stated.usable && fio2.stated.value !== null) return isRoomAirContradiction(fio2, values) ? null : fio2.stated.value;
+  const device = values.get('device');
+  return device && device.stated.usable && device.stated.word === 'room air' && flowOnRoomAir(values) === null ? ROOM_AIR_FIO2 : null;
+}
+
 export type Outcome =
   // The extras by reference: most values give none or one shared object (no copy per value).
   | { readonly kind: 'value'; readonly value: number; readonly terms: readonly Term[]; readonly extras: ValueExtras }

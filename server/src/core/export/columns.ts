@@ -19,7 +19,8 @@
  *   (a field stated on another kind of line, whose value is another one: see `COLUMN_SECTION`),
  *   mean_arterial_pressure_mmHg (estimated from the blood pressure), paco2_etco2_difference_mmHg,
  *   mean_bp_mmHg (a mean arterial pressure as measured), insp_pressure_cmH2O (the set inspiratory
- *   pressure of pressure control, above PEEP).
+ *   pressure of pressure control, above PEEP), fio2_in_force (the FiO2 the calculations use: 0.21
+ *   on room air, where fio2_fraction, the FiO2 written, is empty).
  *
  * Cells:
  * - Field values are those in force at the timepoint: stated there, carried from an earlier
@@ -55,6 +56,7 @@ import type { NoteResult } from '../check-note';
 import type { InputValue, StatedValue, Timepoint } from '../analysis/model';
 import type { DerivedValue } from '../derive/model';
 import { SEA_LEVEL_MMHG } from '../derive/atmosphere';
+import { fio2InForce } from '../derive/context';
 import { DERIVED } from '../derive/registry';
 import { FIELDS, type FieldDef } from '../fields/registry';
 import { sectionById, type SectionId } from '../fields/sections';
@@ -62,7 +64,7 @@ import type { Finding } from '../types';
 import { exportedNumber } from './precision';
 import { ucumCode, unitForPeople, unitSlug } from './units';
 
-export type ColumnKind = 'timepoint' | 'field' | 'derived' | 'summary';
+export type ColumnKind = 'timepoint' | 'field' | 'derived' | 'in-force' | 'summary';
 
 export interface ColumnDef {
   readonly name: string;
@@ -410,7 +412,7 @@ function summaryColumns(): Column[] {
  * after every earlier column, in the order added, so a reader that counts columns finds the old
  * ones where they were.
  */
-const ADDED_LATER: readonly { readonly kind: 'field' | 'derived'; readonly id: string; readonly section?: SectionId }[] = [
+const ADDED_LATER: readonly { readonly kind: 'field' | 'derived' | 'in-force'; readonly id: string; readonly section?: SectionId }[] = [
   { kind: 'derived', id: 'mechanical_power_surrogate' },
   { kind: 'field', id: 'amplitude' },
   // A venous base excess, which the arterial one's column kept before only when no abg line stated one.
@@ -419,7 +421,28 @@ const ADDED_LATER: readonly { readonly kind: 'field' | 'derived'; readonly id: s
   { kind: 'derived', id: 'paco2_etco2_difference' },
   { kind: 'field', id: 'mean_bp' },
   { kind: 'field', id: 'insp_pressure' },
+  // The FiO2 the calculations use: `fio2_fraction` is the FiO2 written, empty on room air.
+  { kind: 'in-force', id: 'fio2' },
 ];
+
+/**
+ * Values the calculations use that no field or derived value holds (`fio2_in_force`, by its field
+ * id): the FiO2 in force, 0.21 on room air where the field's own column holds what was written.
+ */
+const IN_FORCE: Readonly<Record<string, Column>> = {
+  fio2: {
+    name: 'fio2_in_force',
+    description: 'FiO2 the calculations use (P/F, A–a gradient, PiO2): the FiO2 in force as in `fio2_fraction` (written, or carried), else 0.21 on room air, where `fio2_fraction` is empty since no FiO2 is written; empty where neither is known, and on a room-air line with an oxygen flow (PN310) or an FiO2 above 0.21 (PN316). A cannula\'s or a simple mask\'s estimate is in `fio2_estimated`, never here.',
+    unit: unitForPeople('fraction'),
+    ucum: ucumCode('fraction'),
+    type: 'number',
+    kind: 'in-force',
+    source: 'fio2',
+    part: null,
+    section: null,
+    cell: (c) => finite(fio2InForce(c.timepoint.values)),
+  },
+};
 
 function buildColumns(): readonly Column[] {
   const fieldIds = new Set(FIELDS.map((f) => f.id));
@@ -431,6 +454,11 @@ function buildColumns(): readonly Column[] {
     ...DERIVED.filter((d) => !laterDerived.has(d.id)).flatMap((d) => derivedColumns(d, fieldIds)),
     ...summaryColumns(),
     ...ADDED_LATER.flatMap(({ kind, id, section }) => {
+      if (kind === 'in-force') {
+        const column = IN_FORCE[id];
+        if (!column) throw new Error(`export column for ${id} in force: none is defined`);
+        return [column];
+      }
       if (kind === 'field') {
         const index = FIELDS.findIndex((f) => f.id === id);
         if (index < 0) throw new Error(`export column for ${id}: no such field`);
