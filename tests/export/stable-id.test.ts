@@ -1,5 +1,8 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
+import { exportRenderer } from '../../server/src/cli/export-command';
+import { checkNote } from '../../server/src/core/check-note';
+import { toFhirBundle, type FhirBundle } from '../../server/src/core/export';
 import { stableHex128, StableIds, stableUuid } from '../../server/src/core/export/stable-id';
 
 /** The ids as first written: four FNV-1a passes over the text, one per seed (the ids must never change). */
@@ -38,5 +41,52 @@ describe('stable ids', () => {
       expect(stableUuid(prefix + rest)).toBe(referenceUuid(prefix + rest));
       expect(new StableIds(prefix).uuid(rest)).toBe(referenceUuid(prefix + rest));
     }), { numRuns: 500 });
+  });
+});
+
+describe('FHIR ids of a re-exported note after one value is corrected', () => {
+  // One typo fixed (hr 190 → 90): a store that joined on the other Observations' ids keeps them.
+  const before = '@ day 1 08:00  admission\nvitals hr 190, rr 22, spo2 93 %\noxygen venturi, fio2 40 %\nabg 7.38/42/71/24\n@ day 1 12:00\nvitals hr 95, rr 20\n';
+  const after = before.replace('hr 190', 'hr 90');
+  const redacted = { kind: 'export' as const, format: 'fhir' as const, redactProse: true, shiftDays: 0, anchor: null, spreadsheetSafe: false };
+
+  /** fullUrl by resource id, and the Bundle's id. */
+  function idsOf(bundle: FhirBundle): { bundle: string; urls: Map<string, string> } {
+    return { bundle: bundle.id, urls: new Map((bundle.entry ?? []).map((e) => [e.resource.id, e.fullUrl])) };
+  }
+  function redactedIds(text: string): { bundle: string; urls: Map<string, string> } {
+    const out = exportRenderer('note-00001', checkNote(text), redacted);
+    return idsOf(JSON.parse(typeof out === 'string' ? out : 'null') as FhirBundle);
+  }
+  function changed(a: Map<string, string>, b: Map<string, string>): string[] {
+    expect([...b.keys()]).toEqual([...a.keys()]);
+    return [...a.keys()].filter((id) => a.get(id) !== b.get(id));
+  }
+
+  it('without --redact: only the corrected Observation gets a new id; the Bundle keeps its id (made from the path)', () => {
+    const a = idsOf(toFhirBundle('ward-01/bed-04.pneu', checkNote(before), { redactProse: false, shiftDays: 0 }));
+    const b = idsOf(toFhirBundle('ward-01/bed-04.pneu', checkNote(after), { redactProse: false, shiftDays: 0 }));
+    expect(a.urls.size).toBeGreaterThan(6);
+    expect(changed(a.urls, b.urls)).toEqual(['obs-0-hr']);
+    expect(b.bundle).toBe(a.bundle);
+  });
+
+  it('with --redact: only the corrected Observation gets a new id; the Bundle, made from what it holds, a new one', () => {
+    const a = redactedIds(before);
+    const b = redactedIds(after);
+    expect(changed(a.urls, b.urls)).toEqual(['obs-0-hr']);
+    expect(b.bundle).not.toBe(a.bundle);
+    // The same note again: the same ids.
+    expect(redactedIds(before)).toEqual(a);
+  });
+
+  it('a value a derived one rests on changes that one too (a PaO2 and its P/F), and nothing else', () => {
+    const a = redactedIds(before);
+    const b = redactedIds(before.replace('7.38/42/71/24', '7.38/42/77/24'));
+    expect(changed(a.urls, b.urls).sort()).toEqual(['obs-0-pao2', 'obs-0-pf-ratio']);
+  });
+
+  it('with --redact, an id holds no hash of anything the export does not write: a relabelled timepoint (labels are left out) keeps its ids', () => {
+    expect(redactedIds(before.replace('admission', 'Dr Quillfeather'))).toEqual(redactedIds(before));
   });
 });

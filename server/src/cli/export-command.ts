@@ -8,7 +8,6 @@ import type { NoteResult } from '../core/check-note';
 import { csvCells, csvHeader } from '../core/export/csv';
 import { exportColumns, timepointCells } from '../core/export/columns';
 import { anchorProblem, stdinNoteKey, toFhirBundle, type FhirOptions } from '../core/export/fhir';
-import { stableHex128 } from '../core/export/stable-id';
 import { toJsonl } from '../core/export/jsonl';
 import { wordList } from '../core/util/format';
 import { excludeOption, EXIT, HELP, jobsOption, parse, UsageError, validate, wholeNumberOption, type Io } from './args';
@@ -68,16 +67,16 @@ export const exportRenderer: ExportRenderer = (path: string, result: NoteResult,
 };
 
 /**
- * A redacted note's bundle (`pseudonym`: its name in the run, `note-00001`), with ids made from the
- * pseudonym and from the bundle itself as written with ids made from the pseudonym alone: nothing
- * that is not in the output, so no part of the file name, and yet different ids for different notes
- * in the same place of two exports (two wards exported apart and loaded into one store), and the
- * same ids for the same note in the same place on every run. Null as `bundleText` says.
+ * A redacted note's bundle (`pseudonym`: its name in the run, `note-00001`), with ids made from
+ * nothing that is not in the output, so no part of the file name: each Observation's from the
+ * pseudonym and the Observation as written, the Bundle's from the pseudonym and its entries' ids.
+ * The same note in the same place gets the same ids on every run; a corrected value gives its
+ * Observation (and the Bundle) a new id and leaves the others' as they were; the notes in the same
+ * place of two exports share an Observation id only where the Observations are the same in every
+ * member written. Null as `bundleText` says.
  */
 function redactedBundleText(pseudonym: string, result: NoteResult, options: FhirOptions): string | null {
-  const first = bundleText(toFhirBundle(pseudonym, result, { ...options, noteKey: pseudonym }));
-  if (first === null) return null;
-  return bundleText(toFhirBundle(pseudonym, result, { ...options, noteKey: `${pseudonym}\u0000${stableHex128(first)}` }));
+  return bundleText(toFhirBundle(pseudonym, result, { ...options, noteKey: pseudonym, bundleIdFromEntries: true }));
 }
 
 /** Why a note's FHIR bundle is left out of the export. */

@@ -86,7 +86,12 @@
  * Ids: a resource's `id` is `obs-<timepoint>-<field>` (`obs-header-<field>` for header values;
  * `_` becomes `-`, which FHIR ids do not allow) for the value in force, and
  * `obs-<timepoint>-<field>-<section>` for the same field stated in another section there; its `fullUrl` is `urn:uuid:` with a UUID-shaped
- * id derived from the file, the timepoint and the field (stable-id.ts), the same on every run.
+ * id derived from the note's key (its path, or its pseudonym in a redacted export) and the
+ * Observation as written (its JSON: id, codes, value, unit, time, note, and the fullUrls it is
+ * derived from) (stable-id.ts): the same on every run, and kept by every Observation a correction
+ * elsewhere in the note leaves as it was, while a corrected value (and a P/F made from it) gets a
+ * new one. The Bundle's id is made from the note's key alone, or with `bundleIdFromEntries` (a
+ * redacted export, whose key is only a place in the run) from the key and every entry's fullUrl.
  * A note read from standard input is named by its text instead of a path (`stdinNoteKey`).
  */
 import type { NoteResult } from '../check-note';
@@ -115,6 +120,12 @@ export interface FhirOptions {
    * text, so bundles exported from different inputs do not share ids.
    */
   readonly noteKey?: string;
+  /**
+   * Make the Bundle's id from the note's key and its entries' fullUrls rather than from the key
+   * alone: for a redacted export, whose key (`note-00001`) is the same for the notes in the same
+   * place of two exports, which must not share a Bundle id.
+   */
+  readonly bundleIdFromEntries?: boolean;
 }
 
 export interface FhirCoding {
@@ -464,7 +475,8 @@ export function toFhirBundle(path: string, result: NoteResult, options: FhirOpti
   // Every fullUrl's text starts with the note's key: read once.
   const ids = new StableIds(`${noteKey}\u0000`);
   const add = (place: Place, what: string, resource: FhirObservation): string => {
-    const fullUrl = `urn:uuid:${ids.uuid(`${place.key}\u0000${what}`)}`;
+    // The Observation as written is in its id: one a correction leaves as it was keeps its id.
+    const fullUrl = `urn:uuid:${ids.uuid(`${place.key}\u0000${what}\u0000${JSON.stringify(resource)}`)}`;
     entries.push({ fullUrl, resource });
     return fullUrl;
   };
@@ -522,7 +534,7 @@ export function toFhirBundle(path: string, result: NoteResult, options: FhirOpti
 
   return {
     resourceType: 'Bundle',
-    id: `pneumark-${stableHex128(noteKey).slice(0, 16)}`,
+    id: `pneumark-${stableHex128(options.bundleIdFromEntries ? `${noteKey}\u0000${entries.map((e) => e.fullUrl).join('\u0000')}` : noteKey).slice(0, 16)}`,
     type: 'collection',
     ...(entries.length ? { entry: entries } : {}),
   };
