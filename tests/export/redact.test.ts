@@ -39,12 +39,15 @@ function noteWith(w: readonly string[]): string {
     'oxygen    room air',
     `vent      mode ${w[16]}`,
     `vitals    hr 80, rr 16, ${w[17]}`,
+    `labs      na 140 mmol/L, ${w[18]} 3, k 4.1 ${w[19]}`,
+    `vbg       ${w[20]} 7.35/48`,
+    `place     altitude 1200 m ${w[21]}`,
   ].join('\n') + '\n';
 }
 
-const WORDS = 18;
+const WORDS = 22;
 /** One fixed set of words, the mode of the first timepoint as first reported (`mode Smithvent`). */
-const FIXED_WORDS = ['Zoqujy', 'Quxovi', 'Xovuzo', 'Wojoky', 'Kozuqi', 'Juqoxy', 'Vowizu', 'Zizuvo', 'Quvuji', 'Smithvent', 'Kizoqu', 'Xuzivy', 'Vuqoji', 'Jixuzo', 'Wiwuky', 'Zuxovi', 'Qojyzu', 'Kyzoxu'];
+const FIXED_WORDS = ['Zoqujy', 'Quxovi', 'Xovuzo', 'Wojoky', 'Kozuqi', 'Juqoxy', 'Vowizu', 'Zizuvo', 'Quvuji', 'Smithvent', 'Kizoqu', 'Xuzivy', 'Vuqoji', 'Jixuzo', 'Wiwuky', 'Zuxovi', 'Qojyzu', 'Kyzoxu', 'Zyvoqi', 'Xiwoju', 'Qizyvo', 'Wuxoky'];
 const FORMATS = ['csv', 'jsonl', 'fhir'] as const;
 /** What the export writes for one note, as the command makes it (a string; '' when nothing). */
 function exported(path: string, result: ReturnType<typeof checkNote>, t: ReturnType<typeof task>): string {
