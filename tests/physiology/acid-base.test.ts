@@ -343,6 +343,8 @@ describe('null safety (fast-check)', () => {
     expectedHco3Respiratory: totality(fc.tuple(d, chronicity), acidBase.expectedHco3Respiratory),
     acidBaseConsistency: totality(fc.tuple(d, d, d), acidBase.acidBaseConsistency),
     classifyAcidBase: totality(fc.tuple(fc.oneof(gasInput, plausibleGas)), acidBase.classifyAcidBase),
+    arterialPhFromVenous: totality(fc.tuple(d), acidBase.arterialPhFromVenous),
+    venousPco2Screen: totality(fc.tuple(d, d), acidBase.venousPco2Screen),
   };
   it('covers every exported function', () => {
     expect(Object.keys(cases).sort()).toEqual(exportedFunctionNames(acidBase));

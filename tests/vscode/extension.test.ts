@@ -227,10 +227,13 @@ describe('activation', () => {
     const client = clients[0]!;
     // The first request is caught by a restart: it fails as the old server stops.
     const answer = client.sendRequest.bind(client);
+    // Only the trend requests are counted: the status item asks for its own figures through the
+    // same client when the server runs again, at a moment that depends on the machine's load.
     let calls = 0;
     let started!: () => void;
     let restart: Promise<boolean> | null = null;
     client.sendRequest = async (method, params) => {
+      if (method !== 'pneumark/trends') return answer(method, params);
       if (++calls === 1) {
         behaviour.startsWhen = new Promise<void>((resolve) => { started = resolve; });
         restart = state.commands.get('pneumark.restartServer')!() as Promise<boolean>;

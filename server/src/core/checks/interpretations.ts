@@ -82,3 +82,9 @@ export const acidBaseReading = interpretationCheck('PN413', 'acid-base-reading',
   example: '@ 08:00\nabg 7.21/24/95/9.5',
   fix: READING_FIX,
 });
+
+export const venousGasReading = interpretationCheck('PN414', 'venous-gas-reading', 'Venous gas reading', ['venous'], 'Venous pH about 0.03 below the arterial pH: Bloom BM, Grundlingh J, Bestwick JP, Harris T, Eur J Emerg Med 2014, and Kelly AM, Emerg Med Australas 2010 (both read in their abstracts). A venous PCO2 above 45 mmHg as a screen for a PaCO2 above 50 mmHg: Kelly AM, Kerr D, Middleton P, J Emerg Med 2005 (read in its abstract). Arterial pH reference interval 7.35–7.45: common practice, no source.', {
+  fires: 'A venous gas (`vbg`) is stated at a timepoint with no arterial gas, and its pH, taken as about 0.03 below the arterial pH, is consistent with acidaemia or alkalaemia, or its PvCO2 is above 45 mmHg, so that arterial hypercapnia is not ruled out. A venous PCO2 can differ from the arterial one by 20 mmHg either way, so it is read only as a screen: at or below 45 mmHg it is consistent with no arterial hypercapnia (a PaCO2 not above 50 mmHg). A venous PO2 is never read as oxygenation. The arterial readings (PN410–PN413) are not applied to venous values; with an arterial gas at the same timepoint, the arterial gas is read instead. A venous gas whose pH, PvCO2 and HCO3 do not fit together (PN402) is not read.',
+  example: '@ 08:00\nvbg ph 7.24, pco2 68, hco3 28.5',
+  fix: 'Nothing to fix: a reading to support, not replace, clinical judgement. Where oxygenation or an exact PaCO2 matters, an arterial gas measures them.',
+});

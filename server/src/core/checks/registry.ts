@@ -12,7 +12,7 @@ import { pao2AboveAlveolar } from './alveolar-limit';
 import { occultHypoxaemiaCheck } from './occult-hypoxaemia';
 import { gasInconsistent } from './gas-consistency';
 import { internalError } from './internal';
-import { acidBaseReading, oxygenationReading, respiratoryFailureReading, ventilationReading } from './interpretations';
+import { acidBaseReading, oxygenationReading, respiratoryFailureReading, venousGasReading, ventilationReading } from './interpretations';
 import { drivingPressureHigh, plateauHigh, tidalVolumeHigh } from './ventilation-limits';
 import { epapAboveIpap, peepAbovePeak, peepAbovePlateau, plateauAbovePeak, systolicBelowDiastolic } from './pressure-order';
 import { birthDate, calendarDate, emailAddress, phoneNumber, possibleName, postalCode, recordNumber } from './privacy';
@@ -72,6 +72,7 @@ export const CHECKS: readonly CheckDef[] = validateCheckList([
   ventilationReading,
   respiratoryFailureReading,
   acidBaseReading,
+  venousGasReading,
   possibleName,
   birthDate,
   calendarDate,

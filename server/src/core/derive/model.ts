@@ -100,7 +100,7 @@ export function withheldText(n: NotApplicable): string {
   return n.withheldBy !== null ? WITHHELD_BECAUSE[n.withheldBy] ?? n.reason : n.reason;
 }
 
-export type InterpretationTopic = 'oxygenation' | 'oxygenation-band' | 'ventilation' | 'respiratory-failure' | 'hypoxaemia-mechanism' | 'acid-base';
+export type InterpretationTopic = 'oxygenation' | 'oxygenation-band' | 'ventilation' | 'respiratory-failure' | 'hypoxaemia-mechanism' | 'acid-base' | 'venous';
 
 /** An assessment line, always phrased "consistent with ...". */
 export interface Interpretation {

@@ -33,6 +33,12 @@ export const SOURCES = Object.freeze({
     'Arterial reference intervals pH 7.35–7.45, PaCO2 35–45 mmHg, HCO3 22–26 mmol/L: common practice, no source.',
   'compensation-terms':
     'Uncompensated (pH abnormal, the other component in its reference interval), partially compensated (pH abnormal, both components beyond their intervals in opposite directions) and fully compensated (pH in its interval, both components beyond their intervals in opposite directions): common practice, no source.',
+  'bloom-2014':
+    'Bloom BM, Grundlingh J, Bestwick JP, Harris T. The role of venous blood gas in the emergency department: a systematic review and meta-analysis. Eur J Emerg Med 2014;21(2):81–88 (read in its abstract; volume and pages from memory): pooled venous minus arterial pH −0.033 with narrow limits of agreement; PCO2 +4.4 mmHg with limits of agreement −20.4 to +25.8 mmHg, so a venous PCO2 cannot stand for the arterial one, though a normal one screens out arterial hypercapnia.',
+  'kelly-2010':
+    'Kelly AM. Review article: Can venous blood gas analysis replace arterial in emergency medical care. Emerg Med Australas 2010;22:493–498 (read in its abstract): mean arterio–venous pH difference 0.035 with narrow limits of agreement; venous pH and bicarbonate agree well enough with arterial values in patients not in shock; venous pCO2 does not.',
+  'kelly-2005':
+    'Kelly AM, Kerr D, Middleton P. Validation of venous pCO2 to screen for arterial hypercarbia in patients with chronic obstructive airways disease. J Emerg Med 2005;28(4):377–379 (read in its abstract): a venous pCO2 above 45 mmHg caught all 43 patients whose arterial pCO2 was above 50 mmHg; none of the 30 with a venous pCO2 below 45 mmHg had one.',
   'pneumark-consistency-tolerance':
     'Tolerance for reported vs calculated HCO3 (HCO3_CONSISTENCY_TOLERANCE): Pneumark’s own choice, no source; reasoning given beside the constant.',
 } as const);
@@ -710,4 +716,37 @@ export function classifyAcidBase(input: AcidBaseInput): AcidBaseClassification |
     anionGap: anionGapFinding,
     consistency,
   };
+}
+
+/**
+ * How far (pH units) a peripheral venous pH runs below the arterial pH of the same moment: about
+ * 0.03 (pooled differences 0.033 and 0.035, with narrow limits of agreement). Sources: `bloom-2014`, `kelly-2010`.
+ */
+export const VENOUS_PH_BELOW_ARTERIAL = 0.03;
+
+/**
+ * The arterial pH a venous pH stands for: the venous pH plus `VENOUS_PH_BELOW_ARTERIAL`. An
+ * estimate for reading acidaemia or alkalaemia, never a substitute for an arterial gas.
+ * `null` unless 0 ≤ pH ≤ 14. Sources: `bloom-2014`, `kelly-2010`.
+ */
+export function arterialPhFromVenous(venousPh: number): number | null {
+  if (!validPh(venousPh)) return null;
+  return finiteOrNull(venousPh + VENOUS_PH_BELOW_ARTERIAL);
+}
+
+/** A venous PCO2 (mmHg) above this leaves arterial hypercapnia (PaCO2 above 50 mmHg) possible. Source: `kelly-2005`. */
+export const VENOUS_PCO2_SCREEN_MMHG = 45;
+
+/** What a venous PCO2 says of the arterial one: only a screen, as the two can differ by 20 mmHg either way. */
+export type VenousPco2Screen = 'hypercapnia-not-excluded' | 'hypercapnia-unlikely';
+
+/**
+ * A venous PCO2 read as a screen for arterial hypercapnia: above 45 mmHg, hypercapnia is not
+ * excluded; at or below it, arterial hypercapnia (PaCO2 above 50 mmHg) is unlikely. A value
+ * written in kPa is compared at the resolution it was written with (`sideOf`). `null` unless
+ * PvCO2 > 0. Sources: `kelly-2005`, `bloom-2014`.
+ */
+export function venousPco2Screen(pvco2Mmhg: number, resolutionMmhg = 0): VenousPco2Screen | null {
+  if (!allFinite(pvco2Mmhg, resolutionMmhg) || pvco2Mmhg <= 0) return null;
+  return sideOf(pvco2Mmhg, VENOUS_PCO2_SCREEN_MMHG, resolutionMmhg) > 0 ? 'hypercapnia-not-excluded' : 'hypercapnia-unlikely';
 }
