@@ -13,6 +13,7 @@ import { derivedValueOf } from './derive/registry';
 import { percentFromFraction } from './physiology/units';
 import { gasPressureText, kpaFirstCompact, kpaFromMmhg, showsKpa, statedInKpa } from './present';
 import { formatNumber } from './util/format';
+import { ITEMS_PER_STEP, runSteps, type Steps } from './util/steps';
 
 export const TREND_FIELDS = ['pao2', 'paco2', 'ph', 'spo2', 'fio2', 'peep'] as const;
 export const TREND_DERIVED = ['pf_ratio', 'driving_pressure', 'compliance_static'] as const;
@@ -48,16 +49,32 @@ export interface TrendPointData {
 const pointsByTimepoint: Readonly<Record<TrendGasUnit, WeakMap<Timepoint, TrendPointData>>> = { mmHg: new WeakMap(), kPa: new WeakMap() };
 
 export function trendPoints(result: NoteResult): TrendPointData[] {
+  return runSteps(trendPointSteps(result));
+}
+
+/**
+ * `trendPoints` in steps (see util/steps.ts): yielding after every ITEMS_PER_STEP timepoints
+ * derived afresh (a point kept from an earlier analysis costs nothing), and once after the gas
+ * unit is worked out.
+ */
+export function* trendPointSteps(result: NoteResult): Steps<TrendPointData[]> {
   const { timeline } = result.analysis;
   const gasUnit = trendGasUnit(result);
   const kept = pointsByTimepoint[gasUnit];
-  return timeline.timepoints.map((tp, i) => {
+  const timepoints = timeline.timepoints;
+  const points: TrendPointData[] = [];
+  let derived = 0;
+  for (let i = 0; i < timepoints.length; i++) {
+    const tp = timepoints[i]!;
     const known = kept.get(tp);
-    if (known) return known;
+    if (known) { points.push(known); continue; }
+    if (derived > 0 && derived % ITEMS_PER_STEP === 0) yield;
+    derived++;
     const point = trendPoint(tp, result.analysis.derivation(i), gasUnit);
     kept.set(tp, point);
-    return point;
-  });
+    points.push(point);
+  }
+  return points;
 }
 
 /**

@@ -15,13 +15,14 @@ import type { StatedValue } from '../analysis/model';
 import { checkByCodeOrAlias } from '../checks/registry';
 import type { FieldDef } from '../fields/registry';
 import { comparePositions, type Finding, type Fix, type Range, type TextEdit } from '../types';
-import { allStated, isValidPosition, itemAt, lineAt, statedOf, timepointOfLine } from './locate';
+import { allStated, isValidPosition, itemAt, lineAt, statedOf, statedOnLine, timepointOfLine } from './locate';
 import { OSCILLATION_MODE } from '../physiology/mechanics';
 import { parseLine } from '../syntax/parser';
 import type { LineNode } from '../syntax/tree';
 import { applyEdits, editsOverlap } from './text-edits';
 import { displayUnit } from '../analysis/read-value';
-import { convertNoteUnits, itemConversionEdits, numberIn, otherUnits, shorthandConversionEdits, shorthandPressures, type GasUnit } from './unit-conversion';
+import { ITEMS_PER_STEP, runSteps, type Steps } from '../util/steps';
+import { convertNoteUnits, convertNoteUnitSteps, itemConversionEdits, numberIn, otherUnits, shorthandConversionEdits, shorthandPressures, type GasUnit } from './unit-conversion';
 import type { ActionInfo } from './types';
 import { pushAll } from '../util/lists';
 import { convert, unitById, unitsForSpelling, type UnitDef } from '../fields/units';
@@ -32,6 +33,24 @@ export { convertNoteUnits } from './unit-conversion';
 function touches(a: Range, b: Range): boolean {
   return comparePositions(a.start, b.end) <= 0 && comparePositions(b.start, a.end) <= 0;
 }
+
+/**
+ * `codeActions` in steps (see util/steps.ts): the whole-note work it may need first (the findings
+ * with a safe fix and the edits of every one, the conversion of every gas pressure of the note),
+ * yielding as it goes and kept per analysis, where `codeActions` then finds it.
+ */
+export function* codeActionSteps(result: NoteResult, range: Range): Steps<ActionInfo[]> {
+  if (isValidPosition(range.start) && isValidPosition(range.end) && comparePositions(range.start, range.end) <= 0) {
+    yield* fixAllSteps(result);
+    const node = lineAt(result, range.start.line);
+    if (node?.kind === 'section' && (node.section === 'units' || statedOnLine(result, node.line).some((s) => s.field.dimension === 'gas-pressure'))) {
+      for (const to of GAS_UNITS) yield* convertNoteUnitSteps(result, to);
+    }
+  }
+  return codeActions(result, range);
+}
+
+const GAS_UNITS = ['mmHg', 'kPa'] as const;
 
 export function codeActions(result: NoteResult, range: Range): ActionInfo[] {
   if (!isValidPosition(range.start) || !isValidPosition(range.end) || comparePositions(range.start, range.end) > 0) return [];
@@ -328,11 +347,18 @@ class TakenRanges {
 
 /** Edits of the safe fixes of these findings, skipping any that would overlap an earlier one. */
 function safeEdits(findings: readonly Finding[]): SafeEdits {
+  return runSteps(safeEditSteps(findings));
+}
+
+/** `safeEdits` in steps, yielding after every ITEMS_PER_STEP findings (see util/steps.ts). */
+function* safeEditSteps(findings: readonly Finding[]): Steps<SafeEdits> {
   const edits: TextEdit[] = [];
   const taken = new TakenRanges();
   const codes = new Set<string>();
   const fixed: Finding[] = [];
-  for (const f of findings) {
+  for (let i = 0; i < findings.length; i++) {
+    if (i > 0 && i % ITEMS_PER_STEP === 0) yield;
+    const f = findings[i]!;
     const fix = preferredFix(f);
     if (!fix || fix.edits.length === 0) continue;
     if (editsOverlap(fix.edits) || fix.edits.some((e) => taken.overlaps(e.range))) continue;
@@ -354,16 +380,29 @@ interface FixAll {
 const FIX_ALL = new WeakMap<NoteResult, FixAll>();
 
 function fixAllOf(result: NoteResult): FixAll {
+  return runSteps(fixAllSteps(result));
+}
+
+/**
+ * `fixAllOf` in steps, yielding after every ITEMS_PER_STEP findings (see util/steps.ts); the edits
+ * of every safe fix (`all`) are made here too, as the first code action asked for would make them.
+ */
+function* fixAllSteps(result: NoteResult): Steps<FixAll> {
   let known = FIX_ALL.get(result);
   if (!known) {
     const checks = new FixChecks(result);
-    const withSafeFix = result.findings.filter((f) => {
+    const findings = result.findings;
+    const withSafeFix: Finding[] = [];
+    for (let i = 0; i < findings.length; i++) {
+      if (i > 0 && i % ITEMS_PER_STEP === 0) yield;
+      const f = findings[i]!;
       const fix = preferredFix(f);
-      return fix !== undefined && checks.keeps(fix);
-    });
+      if (fix !== undefined && checks.keeps(fix)) withSafeFix.push(f);
+    }
     known = { withSafeFix, byCode: new Map(), all: null };
     FIX_ALL.set(result, known);
   }
+  if (known.withSafeFix.length > 0 && known.all === null) known.all = yield* safeEditSteps(known.withSafeFix);
   return known;
 }
 
