@@ -59,7 +59,7 @@ export function trendPoints(result: NoteResult): TrendPointData[] {
  */
 export function* trendPointSteps(result: NoteResult): Steps<TrendPointData[]> {
   const { timeline } = result.analysis;
-  const gasUnit = trendGasUnit(result);
+  const gasUnit = yield* trendGasUnitSteps(result);
   const kept = pointsByTimepoint[gasUnit];
   const timepoints = timeline.timepoints;
   const points: TrendPointData[] = [];
@@ -86,12 +86,18 @@ export function* trendPointSteps(result: NoteResult): Steps<TrendPointData[]> {
  * axis holds every point.
  */
 export function trendGasUnit(result: NoteResult): TrendGasUnit {
+  return runSteps(trendGasUnitSteps(result));
+}
+
+/** `trendGasUnit` in steps, yielding after every ITEMS_PER_STEP timepoints (see util/steps.ts). */
+function* trendGasUnitSteps(result: NoteResult): Steps<TrendGasUnit> {
   const { timepoints, headerGasUnit } = result.analysis.timeline;
   let kpa = 0;
   let mmhg = 0;
   let last: TrendGasUnit | null = null;
-  for (const tp of timepoints) {
-    const gases = gasesOf(tp);
+  for (let i = 0; i < timepoints.length; i++) {
+    if (i > 0 && i % ITEMS_PER_STEP === 0) yield;
+    const gases = gasesOf(timepoints[i]!);
     kpa += gases.kpa;
     mmhg += gases.mmhg;
     last = gases.last ?? last;

@@ -137,7 +137,7 @@ export function* inlayHintSteps(result: NoteResult, lines: LineSpan, options: Hi
   return hints;
 }
 
-const TIMEPOINTS_PER_HINT_STEP = 16;
+const TIMEPOINTS_PER_HINT_STEP = 8;
 
 export function inlayHints(result: NoteResult, lines: LineSpan, options: HintOptions): InlayHintInfo[] {
   const byLine = new Map<number, Map<HintCategory, Entry[]>>();

@@ -19,7 +19,7 @@ import type { TextEdit } from '../types';
 import { formatNumber, formatShort } from '../util/format';
 import { ITEM_COLUMN } from './format';
 import { within, withinAsWritten } from '../analysis/bounds';
-import { allStated, lineRange, statedOnLine } from './locate';
+import { lineRange, statedOnLine } from './locate';
 import { applyEdits } from './text-edits';
 import { ITEMS_PER_STEP, runSteps, type Steps } from '../util/steps';
 
@@ -435,21 +435,26 @@ function* conversionEdits(result: NoteResult, to: GasUnit, choiceOf: (s: StatedV
   const bareReadsAs = (line: number): GasUnit | null => (line >= bareFrom ? to : null);
 
   const doneShorthand = new Set<number>();
-  const stated = allStated(result);
-  for (let i = 0; i < stated.length; i++) {
-    if (i > 0 && i % ITEMS_PER_STEP === 0) yield;
-    const s = stated[i]!;
-    const field = s.field;
-    if (!isGasPressure(field) || !s.readUnit || s.value === null || !s.item.value) continue;
-    if (s.item.implied === 'shorthand') {
-      if (doneShorthand.has(s.line)) continue;
-      doneShorthand.add(s.line);
-      const node = tree.lines[s.line];
-      const sh = node ? shorthandPressures(result, node) : null;
-      if (sh) edits.push(...shorthandEdits(sh, to, bareReadsAs(s.line), choiceOf));
-      continue;
+  // The header's values, then each timepoint's (`allStated`, without a list of them all).
+  const { header, timepoints } = result.analysis.timeline;
+  let seen = 0;
+  for (let t = -1; t < timepoints.length; t++) {
+    const stated = t < 0 ? header : timepoints[t]!.stated;
+    for (let i = 0; i < stated.length; i++) {
+      if (++seen % ITEMS_PER_STEP === 0) yield;
+      const s = stated[i]!;
+      const field = s.field;
+      if (!isGasPressure(field) || !s.readUnit || s.value === null || !s.item.value) continue;
+      if (s.item.implied === 'shorthand') {
+        if (doneShorthand.has(s.line)) continue;
+        doneShorthand.add(s.line);
+        const node = tree.lines[s.line];
+        const sh = node ? shorthandPressures(result, node) : null;
+        if (sh) edits.push(...shorthandEdits(sh, to, bareReadsAs(s.line), choiceOf));
+        continue;
+      }
+      edits.push(...valueEdits(s, field, to, bareReadsAs(s.line), choiceOf(s)));
     }
-    edits.push(...valueEdits(s, field, to, bareReadsAs(s.line), choiceOf(s)));
   }
   return edits;
 }
