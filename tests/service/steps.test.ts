@@ -6,10 +6,14 @@
 // note, so the slicing is real).
 import { readdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
+import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
+import type { StatedValue } from '../../server/src/core/analysis/model';
 import { checkNote } from '../../server/src/core/check-note';
 import { codeActions, codeActionSteps, convertNoteUnits, convertNoteUnitSteps, documentSymbols, documentSymbolSteps, HINT_CATEGORIES, inlayHints, inlayHintSteps, type HintCategory } from '../../server/src/core/service';
+import { allStated, statedOnLine } from '../../server/src/core/service/locate';
 import { trendPoints, trendPointSteps } from '../../server/src/core/trends';
+import { messyNote } from './note-arbitraries';
 import type { Steps } from '../../server/src/core/util/steps';
 import { generateNote } from '../bench/generate.mjs';
 
@@ -77,5 +81,25 @@ describe('whole-note features in steps', () => {
         expect(stepByStep(codeActionSteps(checkNote(t), range)).value).toEqual(codeActions(checkNote(t), range));
       }
     }
+  });
+});
+
+describe('the stated values of a line, grouped a timepoint at a time', () => {
+  /** What `statedOnLine` gave when it grouped every value of the note at once: the header's, then each timepoint's, in order. */
+  function groupedAtOnce(result: ReturnType<typeof checkNote>, line: number): StatedValue[] {
+    return allStated(result).filter((s) => s.line === line);
+  }
+  const same = (text: string) => {
+    const result = checkNote(text);
+    const lineCount = result.analysis.tree.lines.length;
+    for (let line = -1; line <= lineCount; line++) expect(statedOnLine(result, line)).toEqual(groupedAtOnce(result, line));
+  };
+
+  it('are those of the whole note grouped at once, on every sample and fixture', () => {
+    for (const { text } of notes) same(text);
+  });
+
+  it('are those of the whole note grouped at once, on messy notes (300 cases)', () => {
+    fc.assert(fc.property(messyNote, (text) => same(text)), { numRuns: 300 });
   });
 });
