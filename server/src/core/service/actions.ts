@@ -15,7 +15,7 @@ import type { StatedValue } from '../analysis/model';
 import { checkByCodeOrAlias } from '../checks/registry';
 import type { FieldDef } from '../fields/registry';
 import { comparePositions, type Finding, type Fix, type Range, type TextEdit } from '../types';
-import { allStated, isValidPosition, itemAt, lineAt, statedOf, statedOnLine, timepointOfLine } from './locate';
+import { allStated, isValidPosition, itemAt, lineAt, statedOf, timepointOfLine } from './locate';
 import { OSCILLATION_MODE } from '../physiology/mechanics';
 import { parseLine } from '../syntax/parser';
 import type { LineNode } from '../syntax/tree';
@@ -42,15 +42,27 @@ function touches(a: Range, b: Range): boolean {
 export function* codeActionSteps(result: NoteResult, range: Range): Steps<ActionInfo[]> {
   if (isValidPosition(range.start) && isValidPosition(range.end) && comparePositions(range.start, range.end) <= 0) {
     yield* fixAllSteps(result);
-    const node = lineAt(result, range.start.line);
-    if (node?.kind === 'section' && (node.section === 'units' || statedOnLine(result, node.line).some((s) => s.field.dimension === 'gas-pressure'))) {
-      for (const to of GAS_UNITS) yield* convertNoteUnitSteps(result, to);
-    }
+    if (offersNoteConversion(result, range)) for (const to of noteConversionUnits(result)) yield* convertNoteUnitSteps(result, to);
   }
   return codeActions(result, range);
 }
 
 const GAS_UNITS = ['mmHg', 'kPa'] as const;
+
+/** Whether the value under the cursor offers to convert every gas pressure of the note: on a gas pressure, or on the `units` line. */
+function offersNoteConversion(result: NoteResult, range: Range): boolean {
+  const node = lineAt(result, range.start.line);
+  if (!node || node.kind !== 'section' || range.start.character > node.text.length) return false;
+  if (node.section === 'units') return true;
+  const hit = itemAt(node, range.start.character);
+  return hit !== null && statedOf(result, node.line, hit.item)?.field.dimension === 'gas-pressure';
+}
+
+/** The units the note's gas pressures can be converted to: those some pressure is not written in and can be. */
+function noteConversionUnits(result: NoteResult): GasUnit[] {
+  const stated = allStated(result);
+  return GAS_UNITS.filter((to) => stated.some((s) => s.field.dimension === 'gas-pressure' && s.readUnit !== null && s.readUnit !== to && (s.field.units?.includes(to) ?? false)));
+}
 
 export function codeActions(result: NoteResult, range: Range): ActionInfo[] {
   if (!isValidPosition(range.start) || !isValidPosition(range.end) || comparePositions(range.start, range.end) > 0) return [];
@@ -80,12 +92,10 @@ function valueActions(result: NoteResult, range: Range): ActionInfo[] {
   const out: ActionInfo[] = [];
   const line = node.line;
   const hit = itemAt(node, range.start.character);
-  let onGas = node.section === 'units';
 
   if (hit) {
     const stated = statedOf(result, line, hit.item);
     if (stated) {
-      onGas ||= stated.field.dimension === 'gas-pressure';
       if (hit.item.implied === 'shorthand') {
         pushAll(out, shorthandActions(result, line));
       } else {
@@ -96,10 +106,8 @@ function valueActions(result: NoteResult, range: Range): ActionInfo[] {
     }
   }
 
-  if (onGas) {
-    const stated = allStated(result);
-    for (const to of ['mmHg', 'kPa'] as const) {
-      if (!stated.some((s) => s.field.dimension === 'gas-pressure' && s.readUnit !== null && s.readUnit !== to && (s.field.units?.includes(to) ?? false))) continue;
+  if (offersNoteConversion(result, range)) {
+    for (const to of noteConversionUnits(result)) {
       const edits = noteConversion(result, to);
       if (edits.length > 0) out.push({ title: `Convert every gas pressure in the note to ${to}`, kind: 'refactor.rewrite', edits });
     }
