@@ -2,7 +2,9 @@
  * The Pneumark language server: wires LSP events to the core and translates results. No
  * physiology lives here. Analysis is incremental (one NoteSession per open note), debounced
  * after edits, read in steps when there is much to read (a note just opened, a big change), and
- * never published for a stale version. Every handler is guarded: a failing request answers empty
+ * never published for a stale version. Whole-note requests (the outline, hints over a long range,
+ * code actions, the trend view, the conversion of the note) run in slices (`inSlices`), and a
+ * cancelled request is answered with RequestCancelled. Every handler is guarded: a failing request answers empty
  * and is logged, and the server goes on.
  */
 import { existsSync } from 'node:fs';

@@ -10,6 +10,9 @@
  *   diagnostic object: after an edit most diagnostics are the same objects as before (the core
  *   keeps the findings of unchanged timepoints and the server their translations), so only the
  *   new ones are serialised.
+ * - A response whose result is a long list, or holds one (the outline, the trend view's points),
+ *   is assembled from bytes made beforehand in steps (`prepareJson`), a piece per item, which the
+ *   server makes between turns of its event loop instead of serialising the whole answer at once.
  *
  * The bytes decode to exactly the message `JSON.stringify` would give (tests/server/wire.test.ts).
  */
