@@ -14,7 +14,7 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Diagnostic, Hover, InlayHint, Position, TextEdit } from 'vscode-languageserver-protocol';
+import { CancellationTokenSource, type Diagnostic, type Hover, type InlayHint, type Position, type TextEdit } from 'vscode-languageserver-protocol';
 import { checkNote } from '../../server/src/core/check-note';
 import { formatEdits } from '../../server/src/core/service/format';
 import { lineTable } from '../../server/src/core/service/text-edits';
@@ -22,7 +22,11 @@ import { shownEscaped } from '../../server/src/core/util/format';
 import { SUMMARY_REQUEST, TRENDS_REQUEST } from '../../server/src/protocol';
 import { generateNote } from '../bench/generate.mjs';
 import { rng } from '../helpers/seeded';
-import { startClient, type LspClient } from './lsp-client';
+import { errorCode, startClient, type LspClient } from './lsp-client';
+
+/** LSP's RequestCancelled and ContentModified. */
+const REQUEST_CANCELLED = -32800;
+const CONTENT_MODIFIED = -32801;
 
 let client: LspClient;
 beforeAll(async () => {
@@ -368,9 +372,29 @@ describe('formatting a big note', () => {
     }, 120_000);
   }
 
-  it('gives no edits when the note changes before they are all computed (they would be for a text that is gone)', async () => {
+  // Edits for a text that is gone would damage the note where a client applies them to the text
+  // it holds; none at all would leave the note unformatted. The user asked for the note to be
+  // formatted: it is formatted as it is now.
+  it('gives the edits of the current text when the note changes before they are all computed', async () => {
     const edits = client.connection.sendRequest<TextEdit[]>('textDocument/formatting', { textDocument: { uri }, options: { tabSize: 2, insertSpaces: true } });
     await client.connection.sendNotification('textDocument/didChange', { textDocument: { uri, version: 2 }, contentChanges: [{ range: { start: { line: 0, character: 0 }, end: { line: 0, character: 0 } }, text: '# ' }] });
-    expect(await edits).toEqual([]);
+    const got = await edits;
+    expect(got.length).toBe(10000);
+    expect(got).toEqual(formatEdits(`# ${text}`));
+  }, 120_000);
+
+  it('answers ContentModified to range formatting overtaken by a change (its range named lines of a text that is gone)', async () => {
+    const edits = client.connection.sendRequest<TextEdit[]>('textDocument/rangeFormatting', { textDocument: { uri }, options: { tabSize: 2, insertSpaces: true }, range: { start: { line: 0, character: 0 }, end: { line: lineCount, character: 0 } } });
+    await client.connection.sendNotification('textDocument/didChange', { textDocument: { uri, version: 3 }, contentChanges: [{ range: { start: { line: 0, character: 0 }, end: { line: 0, character: 2 } }, text: '' }] });
+    expect(await errorCode(edits)).toBe(CONTENT_MODIFIED);
+  }, 120_000);
+
+  it('answers RequestCancelled to formatting the client cancels', async () => {
+    const source = new CancellationTokenSource();
+    const edits = client.connection.sendRequest<TextEdit[]>('textDocument/formatting', { textDocument: { uri }, options: { tabSize: 2, insertSpaces: true } }, source.token);
+    // Answered between two steps of the formatting: it has started and is not done.
+    await client.connection.sendRequest<Hover | null>('textDocument/hover', { textDocument: { uri: small }, position: { line: 1, character: 10 } });
+    source.cancel();
+    expect(await errorCode(edits)).toBe(REQUEST_CANCELLED);
   }, 120_000);
 });

@@ -3,7 +3,7 @@
 import fc from 'fast-check';
 import type { Message } from 'vscode-jsonrpc';
 import { describe, expect, it } from 'vitest';
-import { asciiJson, asciiJsonEncoder, encodeMessage } from '../../server/src/server/wire';
+import { asciiJson, asciiJsonEncoder, encodeMessage, prepareJson } from '../../server/src/server/wire';
 
 const decoded = (bytes: Uint8Array): unknown => JSON.parse(Buffer.from(bytes).toString('utf8'));
 const isAscii = (bytes: Uint8Array): boolean => bytes.every((b) => b < 0x80);
@@ -74,5 +74,32 @@ describe('stdio message encoder', () => {
     const bytes = await asciiJsonEncoder.encode(msg, { charset: 'utf-8' });
     expect(asciiJsonEncoder.name).toBe('application/json');
     expect(decoded(bytes)).toEqual(msg);
+  });
+});
+
+describe('results with a list prepared in steps (prepareJson)', () => {
+  it('give the bytes JSON.stringify would give, in ASCII only, the list alone or as a member of the result (300 cases)', () => {
+    fc.assert(
+      fc.property(fc.array(fc.dictionary(fc.string({ unit: 'binary' }), fc.jsonValue()), { maxLength: 12 }), fc.string({ unit: 'binary' }), fc.option(fc.nat(), { nil: undefined }), fc.nat({ max: 5 }), (list, uri, version, per) => {
+        let steps = 0;
+        for (const _ of prepareJson(list, per + 1)) steps++;
+        expect(steps).toBe(Math.floor(list.length / (per + 1)));
+        for (const result of [list, { uri, version, points: list }]) {
+          const msg = { jsonrpc: '2.0', id: 7, result } as unknown as Message;
+          const bytes = encodeMessage(msg);
+          expect(isAscii(bytes)).toBe(true);
+          expect(Buffer.from(bytes).toString('latin1')).toBe(asciiJson(msg));
+        }
+      }),
+      { numRuns: 300 },
+    );
+  });
+
+  it('are assembled from the bytes made in steps, not serialised again', () => {
+    const list = [{ name: 'a' }, { name: 'b' }];
+    for (const _ of prepareJson(list)) { /* steps */ }
+    // A change after the steps (which the server never makes) shows which bytes are sent.
+    list[0]!.name = 'changed';
+    expect(JSON.parse(Buffer.from(encodeMessage({ jsonrpc: '2.0', id: 1, result: list } as unknown as Message)).toString('latin1'))).toEqual({ jsonrpc: '2.0', id: 1, result: [{ name: 'a' }, { name: 'b' }] });
   });
 });

@@ -13,6 +13,7 @@ import { derivedValueOf } from './derive/registry';
 import { percentFromFraction } from './physiology/units';
 import { gasPressureText, kpaFirstCompact, kpaFromMmhg, showsKpa, statedInKpa } from './present';
 import { formatNumber } from './util/format';
+import { ITEMS_PER_STEP, runSteps, type Steps } from './util/steps';
 
 export const TREND_FIELDS = ['pao2', 'paco2', 'ph', 'spo2', 'fio2', 'peep'] as const;
 export const TREND_DERIVED = ['pf_ratio', 'driving_pressure', 'compliance_static'] as const;
@@ -48,16 +49,32 @@ export interface TrendPointData {
 const pointsByTimepoint: Readonly<Record<TrendGasUnit, WeakMap<Timepoint, TrendPointData>>> = { mmHg: new WeakMap(), kPa: new WeakMap() };
 
 export function trendPoints(result: NoteResult): TrendPointData[] {
+  return runSteps(trendPointSteps(result));
+}
+
+/**
+ * `trendPoints` in steps (see util/steps.ts): yielding after every ITEMS_PER_STEP timepoints
+ * derived afresh (a point kept from an earlier analysis costs nothing), and once after the gas
+ * unit is worked out.
+ */
+export function* trendPointSteps(result: NoteResult): Steps<TrendPointData[]> {
   const { timeline } = result.analysis;
-  const gasUnit = trendGasUnit(result);
+  const gasUnit = yield* trendGasUnitSteps(result);
   const kept = pointsByTimepoint[gasUnit];
-  return timeline.timepoints.map((tp, i) => {
+  const timepoints = timeline.timepoints;
+  const points: TrendPointData[] = [];
+  let derived = 0;
+  for (let i = 0; i < timepoints.length; i++) {
+    const tp = timepoints[i]!;
     const known = kept.get(tp);
-    if (known) return known;
+    if (known) { points.push(known); continue; }
+    if (derived > 0 && derived % ITEMS_PER_STEP === 0) yield;
+    derived++;
     const point = trendPoint(tp, result.analysis.derivation(i), gasUnit);
     kept.set(tp, point);
-    return point;
-  });
+    points.push(point);
+  }
+  return points;
 }
 
 /**
@@ -69,12 +86,18 @@ export function trendPoints(result: NoteResult): TrendPointData[] {
  * axis holds every point.
  */
 export function trendGasUnit(result: NoteResult): TrendGasUnit {
+  return runSteps(trendGasUnitSteps(result));
+}
+
+/** `trendGasUnit` in steps, yielding after every ITEMS_PER_STEP timepoints (see util/steps.ts). */
+function* trendGasUnitSteps(result: NoteResult): Steps<TrendGasUnit> {
   const { timepoints, headerGasUnit } = result.analysis.timeline;
   let kpa = 0;
   let mmhg = 0;
   let last: TrendGasUnit | null = null;
-  for (const tp of timepoints) {
-    const gases = gasesOf(tp);
+  for (let i = 0; i < timepoints.length; i++) {
+    if (i > 0 && i % ITEMS_PER_STEP === 0) yield;
+    const gases = gasesOf(timepoints[i]!);
     kpa += gases.kpa;
     mmhg += gases.mmhg;
     last = gases.last ?? last;

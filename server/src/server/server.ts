@@ -2,13 +2,19 @@
  * The Pneumark language server: wires LSP events to the core and translates results. No
  * physiology lives here. Analysis is incremental (one NoteSession per open note), debounced
  * after edits, read in steps when there is much to read (a note just opened, a big change), and
- * never published for a stale version. Every handler is guarded: a failing request answers empty
+ * never published for a stale version. Whole-note requests (the outline, hints over a long range,
+ * code actions, the trend view, the conversion of the note) run in slices (`inSlices`), and a
+ * cancelled request is answered with RequestCancelled. Every handler is guarded: a failing request answers empty
  * and is logged, and the server goes on.
  */
 import { existsSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import {
+  type CancellationToken,
+  type DocumentSymbol,
+  LSPErrorCodes,
+  ResponseError,
   DidChangeConfigurationNotification,
   DidChangeWatchedFilesNotification,
   type WorkspaceFolder,
@@ -24,15 +30,16 @@ import {
 } from 'vscode-languageserver/node';
 import { TextDocument } from 'vscode-languageserver-textdocument';
 import type { NoteResult } from '../core/check-note';
-import { codeActions } from '../core/service/actions';
+import { codeActionSteps } from '../core/service/actions';
 import { completionsAt } from '../core/service/complete';
 import { formatEdits } from '../core/service/format';
-import { inlayHints } from '../core/service/hints';
+import { inlayHints, inlayHintSteps } from '../core/service/hints';
 import { hoverAt } from '../core/service/hover';
-import { documentSymbols, foldingRanges } from '../core/service/symbols';
-import { convertNoteUnits } from '../core/service/unit-conversion';
+import { documentSymbolSteps, foldingRanges } from '../core/service/symbols';
+import { convertNoteUnitSteps } from '../core/service/unit-conversion';
 import { NoteSession } from '../core/session';
-import { timepointSummary, trendPoints } from '../core/trends';
+import { timepointSummary, trendPointSteps, type TrendPointData } from '../core/trends';
+import type { Steps } from '../core/util/steps';
 import {
   ANALYSED_NOTIFICATION,
   CONVERT_UNITS_REQUEST,
@@ -44,12 +51,14 @@ import {
   type SummaryResult,
   type TrendsParams,
   type TrendsResult,
+  type PlainTextEdit,
 } from '../protocol';
 import { notePathOf, ProjectConfigs, type FoundConfig } from '../node/project-config';
 import { ConfigWatcher, filesToWatch, foldersToWatch, insideFolders } from './config-watch';
 import { supersededMessage } from './config-problems';
 import { DEFAULT_CLIENT_SETTINGS, MAX_NOTE_SIZE_KB, effectiveSettings, readClientSettings, settingsKey, type ClientSettings, type EffectiveSettings } from './settings';
 import { heapBudgetBytes, heapCeilingFor, IdleCollector, lineLongerThan, maxLineChars, overHeapBudget, SMALL_NOTE_CHARS } from './memory';
+import { prepareJson } from './wire';
 import { findingsToPublish, isHintRef, rangesOverlap, toCodeAction, toCompletionItem, toDiagnostic, toDocumentSymbol, toInlayHint, tooManyFindings } from './translate';
 
 interface NoteState {
@@ -133,6 +142,35 @@ const FIRST_STEP_LINES = 500;
 const STEP_BUDGET_MS = 25;
 /** Lines formatted in one go; more are formatted in steps (`formatInSteps`), the first of this many. */
 const FORMAT_STEP_LINES = 2000;
+/**
+ * How long whole-note work for a request (the outline, the trend view's points, every hint, the
+ * conversion of the note, the fix-all edits) runs before the server takes a turn of its event
+ * loop (`inSlices`), so that other requests are answered meanwhile.
+ */
+const SLICE_MS = 8;
+/** Answers longer than this many items have their JSON made in slices too (`prepareJson` in wire.ts). */
+const PREPARED_FROM_ITEMS = 500;
+/** How many times formatting of a whole note starts again on a newer version before it gives up (ContentModified). */
+const FORMAT_RESTARTS = 3;
+
+/** The answer to a request cancelled by the client (LSP: RequestCancelled, -32800). */
+function cancelled(): ResponseError<void> {
+  return new ResponseError(LSPErrorCodes.RequestCancelled, 'request cancelled');
+}
+
+/** The answer to a request whose result would be about a version of the note that is gone (LSP: ContentModified, -32801). */
+function contentModified(): ResponseError<void> {
+  return new ResponseError(LSPErrorCodes.ContentModified, 'the note changed while the answer was made');
+}
+
+/** What a request's answer may be: the result, an error, or either later. */
+type Answer<R> = R | ResponseError<void> | Promise<R | ResponseError<void>>;
+
+/** The result with its JSON made in steps when it is long (see `prepareJson`). */
+function* prepared<T extends object>(list: T[]): Steps<T[]> {
+  if (list.length > PREPARED_FROM_ITEMS) yield* prepareJson(list);
+  return list;
+}
 
 /**
  * The size of the next step: scaled to the budget by the last step's time, within limits, and at
@@ -218,9 +256,9 @@ export function startServer(connection: Connection, collector: IdleCollector = n
   let folderChanges = false;
 
   const log = (message: string) => connection.console.log(message);
-  const guard = <P, R>(name: string, fallback: R, handler: (params: P) => R) => (params: P): R => {
+  const guard = <P, R, T = never>(name: string, fallback: R, handler: (params: P, token?: T) => R) => (params: P, token?: T): R => {
     try {
-      return handler(params);
+      return handler(params, token);
     } catch (error) {
       connection.console.error(`pneumark: ${name} failed: ${error instanceof Error ? error.stack ?? error.message : String(error)}`);
       return fallback;
@@ -568,14 +606,97 @@ export function startServer(connection: Connection, collector: IdleCollector = n
    * the note's first analysis). So a request about a big note waits its turn instead of holding
    * everything up while the rest of the note is read at once.
    */
-  function afterReading<R>(uri: string, fallback: R, answer: () => R): R | Promise<R> {
+  function afterReading<R>(uri: string, fallback: R, answer: () => Answer<R>, token?: CancellationToken): Answer<R> {
     const doc = documents.get(uri);
     if (!doc) return answer();
     const state = notes.get(uri) ?? guard('open', undefined, () => stateFor(doc))(undefined);
     if (state && !state.reading && wouldStep(state, doc)) schedule(uri, true);
     const reading = state?.reading;
     if (!reading) return answer();
-    return reading.then(() => afterReading(uri, fallback, answer), () => fallback);
+    // A request cancelled while it waits is answered so at once, not once the note is read.
+    return new Promise<R | ResponseError<void>>((resolve) => {
+      const watch = token?.onCancellationRequested(() => resolve(cancelled()));
+      reading.then(
+        () => { watch?.dispose(); resolve(token?.isCancellationRequested ? cancelled() : afterReading(uri, fallback, answer, token)); },
+        () => { watch?.dispose(); resolve(fallback); },
+      );
+    });
+  }
+
+  /**
+   * Runs whole-note work (steps: see core/util/steps.ts) in slices of about SLICE_MS, with a turn
+   * of the event loop between them, so that other requests (about this note or others) are
+   * answered meanwhile. Between slices a request the client cancelled stops and is answered with
+   * RequestCancelled. Work done within its first slice is answered at once. A failure is logged
+   * and answered with `fallback`, as `guard` does.
+   */
+  function inSlices<R>(name: string, fallback: R, steps: Steps<R>, token?: CancellationToken): Answer<R> {
+    const slice = (): IteratorResult<void, R> => {
+      const until = performance.now() + SLICE_MS;
+      for (;;) {
+        const next = steps.next();
+        if (next.done || performance.now() >= until) return next;
+      }
+    };
+    const failed = (error: unknown): R => {
+      connection.console.error(`pneumark: ${name} failed: ${error instanceof Error ? error.stack ?? error.message : String(error)}`);
+      return fallback;
+    };
+    let first: IteratorResult<void, R>;
+    try {
+      first = slice();
+    } catch (error) {
+      return failed(error);
+    }
+    if (first.done) return first.value;
+    return new Promise<R | ResponseError<void>>((resolve) => {
+      const go = () => {
+        if (token?.isCancellationRequested) { resolve(cancelled()); return; }
+        try {
+          const next = slice();
+          if (next.done) resolve(next.value);
+          else setImmediate(go);
+        } catch (error) {
+          resolve(failed(error));
+        }
+      };
+      setImmediate(go);
+    });
+  }
+
+  /**
+   * Answers that are made of the whole note and asked for again and again while it does not
+   * change (the outline at every edit's pause, the trend view's points), with their JSON: kept per
+   * analysis (an unchanged text gives the same analysis object, and a change a new one).
+   */
+  const keptAnswers = new WeakMap<NoteResult, { symbols?: DocumentSymbol[]; trends?: TrendPointData[] }>();
+  function keptFor(result: NoteResult): { symbols?: DocumentSymbol[]; trends?: TrendPointData[] } {
+    let kept = keptAnswers.get(result);
+    if (!kept) keptAnswers.set(result, (kept = {}));
+    return kept;
+  }
+
+  function* symbolSteps(result: NoteResult): Steps<DocumentSymbol[]> {
+    const kept = keptFor(result);
+    if (kept.symbols) return kept.symbols;
+    const infos = yield* documentSymbolSteps(result);
+    const symbols: DocumentSymbol[] = [];
+    for (let i = 0; i < infos.length; i++) {
+      symbols.push(toDocumentSymbol(infos[i]!));
+      if (i % 128 === 127) yield;
+    }
+    yield* prepared(symbols);
+    kept.symbols = symbols;
+    return symbols;
+  }
+
+  function* trendSteps(result: NoteResult): Steps<TrendPointData[]> {
+    const kept = keptFor(result);
+    if (kept.trends) return kept.trends;
+    const points = yield* trendPointSteps(result);
+    yield* prepared(points);
+    kept.trends = points;
+    return points;
   }
 
   /** Whether analysing the document's text now would take steps (a first read, a big change). */
@@ -680,14 +801,14 @@ export function startServer(connection: Connection, collector: IdleCollector = n
 
   connection.onDidChangeWatchedFiles(() => guard('watched files', undefined, recheckConfigs)(undefined));
 
-  const withResult = <P extends { textDocument: { uri: string } }, R>(name: string, fallback: R, body: (result: NoteResult, doc: TextDocument, state: NoteState, params: P) => R) =>
-    (params: P): R | Promise<R> => afterReading(params.textDocument.uri, fallback, () => guard<P, R>(name, fallback, (p) => {
+  const withResult = <P extends { textDocument: { uri: string } }, R>(name: string, fallback: R, body: (result: NoteResult, doc: TextDocument, state: NoteState, params: P, token: CancellationToken) => Answer<R>) =>
+    (params: P, token: CancellationToken): Answer<R> => afterReading(params.textDocument.uri, fallback, () => guard<P, Answer<R>>(name, fallback, (p) => {
       const doc = documents.get(p.textDocument.uri);
       if (!doc) return fallback;
       const state = stateFor(doc);
       const result = resultFor(doc, state);
-      return result ? body(result, doc, state, p) : fallback;
-    })(params));
+      return result ? body(result, doc, state, p, token) : fallback;
+    })(params), token);
 
   connection.onHover(withResult('hover', null, (result, _doc, _state, params) => {
     const hover = hoverAt(result, params.position);
@@ -697,9 +818,10 @@ export function startServer(connection: Connection, collector: IdleCollector = n
   connection.onCompletion(withResult('completion', [], (result, _doc, _state, params) =>
     completionsAt(result, params.position).map((c, i) => toCompletionItem(c, i, params.position, insertReplace))));
 
-  connection.languages.inlayHint.on(withResult('inlay hints', [], (result, doc, state, params) =>
-    inlayHints(result, { start: params.range.start.line, end: params.range.end.line }, { categories: state.settings.hints })
-      .map((h) => toInlayHint(h, deferHintTooltips ? { uri: doc.uri, version: doc.version, line: h.position.line, category: h.category } : null))));
+  connection.languages.inlayHint.on(withResult('inlay hints', [], (result, doc, state, params, token) => inSlices('inlay hints', [], (function* () {
+    const found = yield* inlayHintSteps(result, { start: params.range.start.line, end: params.range.end.line }, { categories: state.settings.hints });
+    return yield* prepared(found.map((h) => toInlayHint(h, deferHintTooltips ? { uri: doc.uri, version: doc.version, line: h.position.line, category: h.category } : null)));
+  })(), token)));
 
   // The tooltip of a hint sent without it: the same hint of the same version of the note.
   connection.languages.inlayHint.resolve((unresolved: InlayHint) => {
@@ -717,15 +839,16 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     })(unresolved));
   });
 
-  connection.onCodeAction(withResult('code actions', [], (result, doc, state, params) => {
+  connection.onCodeAction(withResult('code actions', [], (result, doc, state, params, token) => inSlices('code actions', [], (function* () {
+    const actions = yield* codeActionSteps(result, params.range);
     const diagnostics = params.context.diagnostics.length > 0 ? params.context.diagnostics : state.diagnostics.filter((d) => rangesOverlap(d.range, params.range));
     const only = params.context.only;
-    return codeActions(result, params.range)
+    return actions
       .filter((a) => !only || only.some((k) => a.kind === k || a.kind.startsWith(`${k}.`)))
       .map((a) => toCodeAction(a, doc.uri, diagnostics));
-  }));
+  })(), token)));
 
-  connection.onDocumentSymbol(withResult('symbols', [], (result) => documentSymbols(result).map(toDocumentSymbol)));
+  connection.onDocumentSymbol(withResult('symbols', [], (result, _doc, _state, _params, token) => inSlices('symbols', [], symbolSteps(result), token)));
   connection.onFoldingRanges(withResult('folding', [], (result) => foldingRanges(result).map((r) => (r.kind === 'region' ? { startLine: r.startLine, endLine: r.endLine, kind: FoldingRangeKind.Region } : { startLine: r.startLine, endLine: r.endLine }))));
 
   /** The note's text when it may be formatted: not over `maxNoteSizeKb` (like its analysis). */
@@ -742,18 +865,31 @@ export function startServer(connection: Connection, collector: IdleCollector = n
    * gives them. Many lines (a big note formatted whole, or a big paste formatted as it is pasted)
    * are formatted in steps of about STEP_BUDGET_MS, with a turn of the event loop between them, so
    * requests about other notes are answered meanwhile; lines are formatted one by one, so the
-   * steps' edits together are those of one call. No edits when the note changes or is closed
-   * before the last step: they would be for a text that is gone.
+   * steps' edits together are those of one call. A request the client cancels is answered with
+   * RequestCancelled between steps. When the note changes before the last step, the edits made
+   * would be for a text that is gone: a whole note (`whole`) is formatted again as it is now, and
+   * the edits are those of the text the editor holds (a client applies them to it; VS Code drops
+   * an answer about a version that is gone, whatever it holds), at most FORMAT_RESTARTS times (a
+   * note typed into all along gets ContentModified); a range, which named lines of the old text,
+   * gets ContentModified at once. A note closed meanwhile gets no edits.
    */
-  function formatInSteps(uri: string, text: string, first: number, last: number): TextEdit[] | Promise<TextEdit[]> {
+  function formatInSteps(uri: string, text: string, first: number, last: number, token: CancellationToken | undefined, whole: boolean, restarts = 0): Answer<TextEdit[]> {
     if (last - first < FORMAT_STEP_LINES) return formatEdits(text, { start: first, end: last });
     const version = documents.get(uri)?.version;
     const edits: TextEdit[] = [];
     let from = first;
     let lines = FORMAT_STEP_LINES;
-    return new Promise<TextEdit[]>((resolve) => {
+    return new Promise<TextEdit[] | ResponseError<void>>((resolve) => {
       const step = () => {
-        if (documents.get(uri)?.version !== version) { resolve([]); return; }
+        if (token?.isCancellationRequested) { resolve(cancelled()); return; }
+        const doc = documents.get(uri);
+        if (!doc) { resolve([]); return; }
+        if (doc.version !== version) {
+          const again = whole && restarts < FORMAT_RESTARTS ? formattable(uri) : null;
+          if (again === null) { resolve(whole && restarts < FORMAT_RESTARTS ? [] : contentModified()); return; }
+          resolve(formatInSteps(uri, again, 0, doc.lineCount - 1, token, true, restarts + 1));
+          return;
+        }
         try {
           const started = performance.now();
           const to = Math.min(last, from + lines - 1);
@@ -772,18 +908,18 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     });
   }
 
-  connection.onDocumentFormatting(guard('formatting', [], (params: { textDocument: { uri: string } }) => {
+  connection.onDocumentFormatting(guard('formatting', [], (params: { textDocument: { uri: string } }, token?: CancellationToken): Answer<TextEdit[]> => {
     const text = formattable(params.textDocument.uri);
     const doc = documents.get(params.textDocument.uri);
-    return text === null || !doc ? [] : formatInSteps(doc.uri, text, 0, doc.lineCount - 1);
+    return text === null || !doc ? [] : formatInSteps(doc.uri, text, 0, doc.lineCount - 1, token, true);
   }));
-  connection.onDocumentRangeFormatting(guard('range formatting', [], (params: { textDocument: { uri: string }; range: Range }) => {
+  connection.onDocumentRangeFormatting(guard('range formatting', [], (params: { textDocument: { uri: string }; range: Range }, token?: CancellationToken): Answer<TextEdit[]> => {
     const text = formattable(params.textDocument.uri);
     const lines = formattedLines(params.range);
-    return text === null || lines === null ? [] : formatInSteps(params.textDocument.uri, text, lines.start, lines.end);
+    return text === null || lines === null ? [] : formatInSteps(params.textDocument.uri, text, lines.start, lines.end, token, false);
   }));
 
-  connection.onRequest(TRENDS_REQUEST, (params: TrendsParams) => afterReading(params.uri, null, () => guard('trends', null, (p: TrendsParams): TrendsResult | null => {
+  connection.onRequest<TrendsResult | null, void>(TRENDS_REQUEST, (params: TrendsParams, token: CancellationToken): Answer<TrendsResult | null> => afterReading(params.uri, null, () => guard('trends', null, (p: TrendsParams): Answer<TrendsResult | null> => {
     const doc = documents.get(p.uri);
     if (!doc) return null;
     const state = stateFor(doc);
@@ -792,22 +928,28 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     const why = notAnalysed(text, state);
     if (why !== null) return { uri: p.uri, version: doc.version, points: [], notAnalysed: why.message };
     const result = resultFor(doc, state);
-    return { uri: p.uri, version: doc.version, points: result ? trendPoints(result) : [] };
-  })(params)));
+    const { uri, version } = doc;
+    if (!result) return { uri, version, points: [] };
+    return inSlices('trends', null, (function* () {
+      const points = yield* trendSteps(result);
+      return { uri, version, points };
+    })(), token);
+  })(params), token));
 
-  connection.onRequest(SUMMARY_REQUEST, (params: SummaryParams) => afterReading(params.uri, null, () => guard('summary', null, (p: SummaryParams): SummaryResult | null => {
+  connection.onRequest<SummaryResult | null, void>(SUMMARY_REQUEST, (params: SummaryParams) => afterReading(params.uri, null, () => guard('summary', null, (p: SummaryParams): SummaryResult | null => {
     const doc = documents.get(p.uri);
     if (!doc) return null;
     const result = resultFor(doc);
     return result ? timepointSummary(result, p.line) : null;
   })(params)));
 
-  connection.onRequest(CONVERT_UNITS_REQUEST, (params: ConvertUnitsParams) => afterReading(params.uri, [], () => guard('convert units', [], (p: ConvertUnitsParams) => {
+  connection.onRequest<PlainTextEdit[], void>(CONVERT_UNITS_REQUEST, (params: ConvertUnitsParams, token: CancellationToken): Answer<PlainTextEdit[]> => afterReading(params.uri, [], () => guard('convert units', [], (p: ConvertUnitsParams): Answer<PlainTextEdit[]> => {
     const doc = documents.get(p.uri);
-    if (!doc || (p.to !== 'mmHg' && p.to !== 'kPa')) return [];
+    const to = p.to;
+    if (!doc || (to !== 'mmHg' && to !== 'kPa')) return [];
     const result = resultFor(doc);
-    return result ? convertNoteUnits(result, p.to) : [];
-  })(params)));
+    return result ? inSlices('convert units', [], (function* () { return yield* prepared(yield* convertNoteUnitSteps(result, to)); })(), token) : [];
+  })(params), token));
 
   documents.listen(connection);
   connection.listen();

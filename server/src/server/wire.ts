@@ -10,6 +10,9 @@
  *   diagnostic object: after an edit most diagnostics are the same objects as before (the core
  *   keeps the findings of unchanged timepoints and the server their translations), so only the
  *   new ones are serialised.
+ * - A response whose result is a long list, or holds one (the outline, the trend view's points),
+ *   is assembled from bytes made beforehand in steps (`prepareJson`), a piece per item, which the
+ *   server makes between turns of its event loop instead of serialising the whole answer at once.
  *
  * The bytes decode to exactly the message `JSON.stringify` would give (tests/server/wire.test.ts).
  */
@@ -70,8 +73,74 @@ function isPublish(msg: Message): msg is Message & PublishMessage {
     Object.keys(msg).every((k) => k === 'jsonrpc' || k === 'method' || k === 'params');
 }
 
+/** The JSON bytes of long lists made ready to be sent (`prepareJson`), by list. */
+const prepared = new WeakMap<object, Buffer>();
+
+/**
+ * Makes the JSON of a long list that a response will carry, a piece per item (kept per item
+ * object, like a diagnostic's), yielding after every `per` items: the language server runs these
+ * steps between turns of its event loop, and the encoder then assembles the response from the
+ * bytes made here instead of serialising the whole list at once. The list and its items must not
+ * change afterwards (the answers kept per analysis do not).
+ */
+export function* prepareJson(list: readonly object[], per = 128): Generator<void, void, void> {
+  if (prepared.has(list)) return;
+  const parts: Buffer[] = [OPEN];
+  let length = 1;
+  for (let i = 0; i < list.length; i++) {
+    if (i > 0) { parts.push(COMMA); length += 1; }
+    const piece = pieceOf(list[i]!);
+    parts.push(piece);
+    length += piece.length;
+    if (i % per === per - 1) yield;
+  }
+  parts.push(CLOSE);
+  prepared.set(list, Buffer.concat(parts, length + 1));
+}
+
+const OPEN = Buffer.from('[');
+const CLOSE = Buffer.from(']');
+
+/** A response with a result, as vscode-jsonrpc makes it (`jsonrpc`, `id`, `result`, in that order). */
+interface ResultMessage {
+  readonly jsonrpc: string;
+  readonly id: number | string | null;
+  readonly result: unknown;
+}
+
+function isResult(msg: Message): msg is Message & ResultMessage {
+  const keys = Object.keys(msg);
+  return keys.length === 3 && keys[0] === 'jsonrpc' && keys[1] === 'id' && keys[2] === 'result';
+}
+
+/**
+ * The bytes of a result that holds a prepared list: the list itself, or a plain object with one
+ * among its members (the trend view's points); null when it holds none.
+ */
+function preparedResult(result: unknown): Buffer | null {
+  if (typeof result !== 'object' || result === null) return null;
+  const whole = prepared.get(result);
+  if (whole !== undefined) return whole;
+  if (Array.isArray(result) || Object.getPrototypeOf(result) !== Object.prototype) return null;
+  const members = Object.entries(result as Record<string, unknown>);
+  if (!members.some(([, v]) => typeof v === 'object' && v !== null && prepared.has(v))) return null;
+  const parts: Buffer[] = [];
+  for (const [key, value] of members) {
+    // As JSON.stringify: members that have no JSON are left out.
+    if (value === undefined || typeof value === 'function' || typeof value === 'symbol') continue;
+    const bytes = (typeof value === 'object' && value !== null ? prepared.get(value) : undefined) ?? asciiBytes(asciiJson(value));
+    parts.push(asciiBytes(`${parts.length === 0 ? '{' : ','}${asciiJson(key)}:`), bytes);
+  }
+  parts.push(asciiBytes(parts.length === 0 ? '{}' : '}'));
+  return Buffer.concat(parts);
+}
+
 /** The JSON bytes of one message, ASCII only. */
 export function encodeMessage(msg: Message): Buffer {
+  if (isResult(msg)) {
+    const result = preparedResult(msg.result);
+    if (result !== null) return Buffer.concat([asciiBytes(`{"jsonrpc":${asciiJson(msg.jsonrpc)},"id":${asciiJson(msg.id)},"result":`), result, asciiBytes('}')]);
+  }
   if (!isPublish(msg)) return asciiBytes(asciiJson(msg));
   const { uri, version, diagnostics } = msg.params;
   const versionPart = version === undefined ? '' : `,"version":${asciiJson(version)}`;

@@ -21,7 +21,8 @@ import { parseLine } from '../syntax/parser';
 import type { LineNode } from '../syntax/tree';
 import { applyEdits, editsOverlap } from './text-edits';
 import { displayUnit } from '../analysis/read-value';
-import { convertNoteUnits, itemConversionEdits, numberIn, otherUnits, shorthandConversionEdits, shorthandPressures, type GasUnit } from './unit-conversion';
+import { ITEMS_PER_STEP, runSteps, type Steps } from '../util/steps';
+import { convertNoteUnits, convertNoteUnitSteps, itemConversionEdits, numberIn, otherUnits, shorthandConversionEdits, shorthandPressures, type GasUnit } from './unit-conversion';
 import type { ActionInfo } from './types';
 import { pushAll } from '../util/lists';
 import { convert, unitById, unitsForSpelling, type UnitDef } from '../fields/units';
@@ -31,6 +32,36 @@ export { convertNoteUnits } from './unit-conversion';
 
 function touches(a: Range, b: Range): boolean {
   return comparePositions(a.start, b.end) <= 0 && comparePositions(b.start, a.end) <= 0;
+}
+
+/**
+ * `codeActions` in steps (see util/steps.ts): the whole-note work it may need first (the findings
+ * with a safe fix and the edits of every one, the conversion of every gas pressure of the note),
+ * yielding as it goes and kept per analysis, where `codeActions` then finds it.
+ */
+export function* codeActionSteps(result: NoteResult, range: Range): Steps<ActionInfo[]> {
+  if (isValidPosition(range.start) && isValidPosition(range.end) && comparePositions(range.start, range.end) <= 0) {
+    yield* fixAllSteps(result);
+    if (offersNoteConversion(result, range)) for (const to of noteConversionUnits(result)) yield* convertNoteUnitSteps(result, to);
+  }
+  return codeActions(result, range);
+}
+
+const GAS_UNITS = ['mmHg', 'kPa'] as const;
+
+/** Whether the value under the cursor offers to convert every gas pressure of the note: on a gas pressure, or on the `units` line. */
+function offersNoteConversion(result: NoteResult, range: Range): boolean {
+  const node = lineAt(result, range.start.line);
+  if (!node || node.kind !== 'section' || range.start.character > node.text.length) return false;
+  if (node.section === 'units') return true;
+  const hit = itemAt(node, range.start.character);
+  return hit !== null && statedOf(result, node.line, hit.item)?.field.dimension === 'gas-pressure';
+}
+
+/** The units the note's gas pressures can be converted to: those some pressure is not written in and can be. */
+function noteConversionUnits(result: NoteResult): GasUnit[] {
+  const stated = allStated(result);
+  return GAS_UNITS.filter((to) => stated.some((s) => s.field.dimension === 'gas-pressure' && s.readUnit !== null && s.readUnit !== to && (s.field.units?.includes(to) ?? false)));
 }
 
 export function codeActions(result: NoteResult, range: Range): ActionInfo[] {
@@ -61,12 +92,10 @@ function valueActions(result: NoteResult, range: Range): ActionInfo[] {
   const out: ActionInfo[] = [];
   const line = node.line;
   const hit = itemAt(node, range.start.character);
-  let onGas = node.section === 'units';
 
   if (hit) {
     const stated = statedOf(result, line, hit.item);
     if (stated) {
-      onGas ||= stated.field.dimension === 'gas-pressure';
       if (hit.item.implied === 'shorthand') {
         pushAll(out, shorthandActions(result, line));
       } else {
@@ -77,10 +106,8 @@ function valueActions(result: NoteResult, range: Range): ActionInfo[] {
     }
   }
 
-  if (onGas) {
-    const stated = allStated(result);
-    for (const to of ['mmHg', 'kPa'] as const) {
-      if (!stated.some((s) => s.field.dimension === 'gas-pressure' && s.readUnit !== null && s.readUnit !== to && (s.field.units?.includes(to) ?? false))) continue;
+  if (offersNoteConversion(result, range)) {
+    for (const to of noteConversionUnits(result)) {
       const edits = noteConversion(result, to);
       if (edits.length > 0) out.push({ title: `Convert every gas pressure in the note to ${to}`, kind: 'refactor.rewrite', edits });
     }
@@ -328,11 +355,18 @@ class TakenRanges {
 
 /** Edits of the safe fixes of these findings, skipping any that would overlap an earlier one. */
 function safeEdits(findings: readonly Finding[]): SafeEdits {
+  return runSteps(safeEditSteps(findings));
+}
+
+/** `safeEdits` in steps, yielding after every ITEMS_PER_STEP findings (see util/steps.ts). */
+function* safeEditSteps(findings: readonly Finding[]): Steps<SafeEdits> {
   const edits: TextEdit[] = [];
   const taken = new TakenRanges();
   const codes = new Set<string>();
   const fixed: Finding[] = [];
-  for (const f of findings) {
+  for (let i = 0; i < findings.length; i++) {
+    if (i > 0 && i % ITEMS_PER_STEP === 0) yield;
+    const f = findings[i]!;
     const fix = preferredFix(f);
     if (!fix || fix.edits.length === 0) continue;
     if (editsOverlap(fix.edits) || fix.edits.some((e) => taken.overlaps(e.range))) continue;
@@ -354,16 +388,29 @@ interface FixAll {
 const FIX_ALL = new WeakMap<NoteResult, FixAll>();
 
 function fixAllOf(result: NoteResult): FixAll {
+  return runSteps(fixAllSteps(result));
+}
+
+/**
+ * `fixAllOf` in steps, yielding after every ITEMS_PER_STEP findings (see util/steps.ts); the edits
+ * of every safe fix (`all`) are made here too, as the first code action asked for would make them.
+ */
+function* fixAllSteps(result: NoteResult): Steps<FixAll> {
   let known = FIX_ALL.get(result);
   if (!known) {
     const checks = new FixChecks(result);
-    const withSafeFix = result.findings.filter((f) => {
+    const findings = result.findings;
+    const withSafeFix: Finding[] = [];
+    for (let i = 0; i < findings.length; i++) {
+      if (i > 0 && i % ITEMS_PER_STEP === 0) yield;
+      const f = findings[i]!;
       const fix = preferredFix(f);
-      return fix !== undefined && checks.keeps(fix);
-    });
+      if (fix !== undefined && checks.keeps(fix)) withSafeFix.push(f);
+    }
     known = { withSafeFix, byCode: new Map(), all: null };
     FIX_ALL.set(result, known);
   }
+  if (known.withSafeFix.length > 0 && known.all === null) known.all = yield* safeEditSteps(known.withSafeFix);
   return known;
 }
 

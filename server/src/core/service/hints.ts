@@ -18,6 +18,8 @@ import type { NoteResult } from '../check-note';
 import { isGasPressureValue, withheldText, type DerivedValue, type Interpretation, type NotApplicable, type Term, type TimepointDerivation } from '../derive/model';
 import { kpaFirstCompact, kpaNumber } from '../present';
 import { formatNumber } from '../util/format';
+import { pushAll } from '../util/lists';
+import { type Steps } from '../util/steps';
 import { derivedBody, derivedInKpa, termText } from './derived-hover';
 import { contentEnd, statesHeaderValues, lineAt } from './locate';
 import { cautionLine, escapeMarkdown, paragraphs } from './markdown';
@@ -113,6 +115,29 @@ interface Entry {
   /** The timepoint whose gas unit the tooltip follows (on a header line, as the header shows it). */
   readonly timepoint: Timepoint;
 }
+
+/**
+ * `inlayHints` in steps (see util/steps.ts): the lines asked for cut where a timepoint starts, a
+ * step for every TIMEPOINTS_PER_HINT_STEP timepoints. Each timepoint's hints are on its own lines
+ * (or the header's, in the first piece), so the pieces' hints, one after another, are those of
+ * the whole range at once.
+ */
+export function* inlayHintSteps(result: NoteResult, lines: LineSpan, options: HintOptions): Steps<InlayHintInfo[]> {
+  const timepoints = result.analysis.timeline.timepoints;
+  let next = 0;
+  while (next < timepoints.length && timepoints[next]!.startLine <= lines.start) next++;
+  const hints: InlayHintInfo[] = [];
+  for (let from = lines.start; from <= lines.end;) {
+    next += TIMEPOINTS_PER_HINT_STEP;
+    const to = Math.max(from, Math.min(lines.end, next < timepoints.length ? timepoints[next]!.startLine - 1 : lines.end));
+    pushAll(hints, inlayHints(result, { start: from, end: to }, options));
+    from = to + 1;
+    if (from <= lines.end) yield;
+  }
+  return hints;
+}
+
+const TIMEPOINTS_PER_HINT_STEP = 8;
 
 export function inlayHints(result: NoteResult, lines: LineSpan, options: HintOptions): InlayHintInfo[] {
   const byLine = new Map<number, Map<HintCategory, Entry[]>>();

@@ -15,8 +15,8 @@ export { applyEdits, editsOverlap, lineTable, offsetAt, OverlappingEditsError, t
 export { formatNote, formatEdits, formatLine, ITEM_COLUMN, COMMENT_GAP } from './format';
 export { hoverAt, sectionMarkdown, clockText } from './hover';
 export { derivedHover, derivedBody, derivedValueText } from './derived-hover';
-export { inlayHints, acidBaseLabel, carriedInputs, CARRIED_MARK, HINT_PICKS, ACID_BASE_READING_ID, type HintOptions } from './hints';
+export { inlayHints, inlayHintSteps, acidBaseLabel, carriedInputs, CARRIED_MARK, HINT_PICKS, ACID_BASE_READING_ID, type HintOptions } from './hints';
 export { completionsAt } from './complete';
-export { codeActions, keepsValues } from './actions';
-export { convertNoteUnits, type GasUnit } from './unit-conversion';
-export { documentSymbols, foldingRanges } from './symbols';
+export { codeActions, codeActionSteps, keepsValues } from './actions';
+export { convertNoteUnits, convertNoteUnitSteps, type GasUnit } from './unit-conversion';
+export { documentSymbols, documentSymbolSteps, foldingRanges } from './symbols';

@@ -72,22 +72,52 @@ export function allStated(result: NoteResult): StatedValue[] {
 
 const NO_STATED: readonly StatedValue[] = Object.freeze([]);
 
-/** The stated values of each line, kept per analysis (features ask for one line's values many times). */
-const BY_LINE = new WeakMap<NoteResult, Map<number, StatedValue[]>>();
+/** The header's stated values by line, kept per analysis (features ask for one line's values many times). */
+const HEADER_BY_LINE = new WeakMap<NoteResult, Map<number, StatedValue[]>>();
 
-/** The stated values read from one line, in reading order. */
-export function statedOnLine(result: NoteResult, line: number): readonly StatedValue[] {
-  let byLine = BY_LINE.get(result);
-  if (!byLine) {
-    byLine = new Map();
-    for (const s of allStated(result)) {
-      const list = byLine.get(s.line);
-      if (list) list.push(s);
-      else byLine.set(s.line, [s]);
-    }
-    BY_LINE.set(result, byLine);
+/**
+ * A timepoint's stated values by line, kept per timepoint object (an edit keeps the timepoints it
+ * does not touch): grouped a timepoint at a time as lines are asked about, since grouping every
+ * value of a big note took a first hover after each edit some 200 ms.
+ */
+const TIMEPOINT_BY_LINE = new WeakMap<Timepoint, Map<number, StatedValue[]>>();
+
+function byLine(values: readonly StatedValue[]): Map<number, StatedValue[]> {
+  const map = new Map<number, StatedValue[]>();
+  for (const s of values) {
+    const list = map.get(s.line);
+    if (list) list.push(s);
+    else map.set(s.line, [s]);
   }
-  return byLine.get(line) ?? NO_STATED;
+  return map;
+}
+
+/** The last timepoint that starts at or before `line` (timepoints are in the order of their lines). */
+function timepointFrom(timepoints: readonly Timepoint[], line: number): Timepoint | null {
+  let low = 0;
+  let high = timepoints.length - 1;
+  let found: Timepoint | null = null;
+  while (low <= high) {
+    const mid = (low + high) >> 1;
+    const tp = timepoints[mid]!;
+    if (tp.startLine <= line) { found = tp; low = mid + 1; } else high = mid - 1;
+  }
+  return found;
+}
+
+/** The stated values read from one line, in reading order (the header's, then its timepoint's). */
+export function statedOnLine(result: NoteResult, line: number): readonly StatedValue[] {
+  const t = result.analysis.timeline;
+  let header = HEADER_BY_LINE.get(result);
+  if (!header) HEADER_BY_LINE.set(result, (header = byLine(t.header)));
+  const fromHeader = header.get(line);
+  const tp = timepointFrom(t.timepoints, line);
+  if (!tp || line > tp.endLine) return fromHeader ?? NO_STATED;
+  let ofTimepoint = TIMEPOINT_BY_LINE.get(tp);
+  if (!ofTimepoint) TIMEPOINT_BY_LINE.set(tp, (ofTimepoint = byLine(tp.stated)));
+  const fromTimepoint = ofTimepoint.get(line);
+  if (!fromHeader) return fromTimepoint ?? NO_STATED;
+  return fromTimepoint ? [...fromHeader, ...fromTimepoint] : fromHeader;
 }
 
 /**

@@ -14,6 +14,7 @@ import type { LineNode, SectionLine } from '../syntax/tree';
 import { clockText, unreadTime, writtenTime } from './hover';
 import { contentEnd, contentStart } from './locate';
 import type { FoldingRangeInfo, SymbolInfo } from './types';
+import { ITEMS_PER_STEP, runSteps, type Steps } from '../util/steps';
 
 function isContent(node: LineNode): boolean {
   return node.kind === 'section' || node.kind === 'timepoint' || node.kind === 'unknown';
@@ -80,7 +81,13 @@ function headerOf(result: NoteResult): { implicitStart: number | null; header: {
   return { implicitStart, header: { start: firstHeader.line, end: lastFilledLine(lines, firstHeader.line, headerEnd), lines: headerLines } };
 }
 
+/** The outline of a note (see the header of this file). */
 export function documentSymbols(result: NoteResult): SymbolInfo[] {
+  return runSteps(documentSymbolSteps(result));
+}
+
+/** `documentSymbols` in steps, yielding after every ITEMS_PER_STEP timepoints (see util/steps.ts). */
+export function* documentSymbolSteps(result: NoteResult): Steps<SymbolInfo[]> {
   const lines = result.analysis.tree.lines;
   const timepoints = result.analysis.timeline.timepoints;
   const symbols: SymbolInfo[] = [];
@@ -97,7 +104,9 @@ export function documentSymbols(result: NoteResult): SymbolInfo[] {
     });
   }
 
-  for (const tp of timepoints) {
+  for (let t = 0; t < timepoints.length; t++) {
+    if (t > 0 && t % ITEMS_PER_STEP === 0) yield;
+    const tp = timepoints[t]!;
     const start = tp.line ?? implicitStart ?? tp.startLine;
     const end = lastFilledLine(lines, start, Math.max(start, tp.endLine));
     const children: SymbolInfo[] = [];

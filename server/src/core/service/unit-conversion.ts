@@ -19,8 +19,9 @@ import type { TextEdit } from '../types';
 import { formatNumber, formatShort } from '../util/format';
 import { ITEM_COLUMN } from './format';
 import { within, withinAsWritten } from '../analysis/bounds';
-import { allStated, lineRange, statedOnLine } from './locate';
+import { lineRange, statedOnLine } from './locate';
 import { applyEdits } from './text-edits';
+import { ITEMS_PER_STEP, runSteps, type Steps } from '../util/steps';
 
 export type GasUnit = 'mmHg' | 'kPa';
 
@@ -262,9 +263,18 @@ function unitsLineInsertion(result: NoteResult): number {
  * written one stands for; where no number does, they keep their number and unit as written.
  */
 export function convertNoteUnits(result: NoteResult, to: GasUnit): TextEdit[] {
+  return runSteps(convertNoteUnitSteps(result, to));
+}
+
+/** `convertNoteUnits` in steps (see util/steps.ts), yielding after every ITEMS_PER_STEP values converted; none when the memo has it. */
+export function* convertNoteUnitSteps(result: NoteResult, to: GasUnit): Steps<TextEdit[]> {
   let known = CONVERSIONS.get(result);
   if (!known) CONVERSIONS.set(result, (known = {}));
-  return (known[to] ??= keepingOutcomes(result, to));
+  const kept = known[to];
+  if (kept) return kept;
+  const edits = yield* keepingOutcomes(result, to);
+  known[to] = edits;
+  return edits;
 }
 
 /**
@@ -274,8 +284,8 @@ export function convertNoteUnits(result: NoteResult, to: GasUnit): TextEdit[] {
 const CONVERSIONS = new WeakMap<NoteResult, Partial<Record<GasUnit, TextEdit[]>>>();
 
 /** `convertNoteUnits` without the memo. */
-function keepingOutcomes(result: NoteResult, to: GasUnit): TextEdit[] {
-  let edits = conversionEdits(result, to, ALL_NEAREST);
+function* keepingOutcomes(result: NoteResult, to: GasUnit): Steps<TextEdit[]> {
+  let edits = yield* conversionEdits(result, to, ALL_NEAREST);
   if (edits.length === 0 || result.analysis.timeline.timepoints.length > VERIFIED_UP_TO_TIMEPOINTS) return edits;
   // The note as converted must read as the note does: the same physiology findings and reading
   // bands at every timepoint. Rounding to a unit's usual decimals can move a value across a
@@ -301,7 +311,7 @@ function keepingOutcomes(result: NoteResult, to: GasUnit): TextEdit[] {
       for (let line = tp.startLine; line <= tp.endLine; line++) chosen.set(line, choice);
     }
     if (!differs) return edits;
-    edits = conversionEdits(result, to, (s) => chosen.get(s.line) ?? NEAREST);
+    edits = yield* conversionEdits(result, to, (s) => chosen.get(s.line) ?? NEAREST);
   }
   // A timepoint still read otherwise after every try keeps its pressures as written, with their
   // unit (a kPa value on two thresholds at once, 6.7 kPa at the hypercapnia threshold of 50 mmHg and
@@ -392,7 +402,7 @@ function withoutNumbers(text: string): string {
 }
 
 /** `convertNoteUnits` with each converted value written as `choiceOf(value)` chooses. */
-function conversionEdits(result: NoteResult, to: GasUnit, choiceOf: (s: StatedValue) => Choice): TextEdit[] {
+function* conversionEdits(result: NoteResult, to: GasUnit, choiceOf: (s: StatedValue) => Choice): Steps<TextEdit[]> {
   const edits: TextEdit[] = [];
   const tree = result.analysis.tree;
   const unitItems = gasUnitItems(result);
@@ -425,18 +435,26 @@ function conversionEdits(result: NoteResult, to: GasUnit, choiceOf: (s: StatedVa
   const bareReadsAs = (line: number): GasUnit | null => (line >= bareFrom ? to : null);
 
   const doneShorthand = new Set<number>();
-  for (const s of allStated(result)) {
-    const field = s.field;
-    if (!isGasPressure(field) || !s.readUnit || s.value === null || !s.item.value) continue;
-    if (s.item.implied === 'shorthand') {
-      if (doneShorthand.has(s.line)) continue;
-      doneShorthand.add(s.line);
-      const node = tree.lines[s.line];
-      const sh = node ? shorthandPressures(result, node) : null;
-      if (sh) edits.push(...shorthandEdits(sh, to, bareReadsAs(s.line), choiceOf));
-      continue;
+  // The header's values, then each timepoint's (`allStated`, without a list of them all).
+  const { header, timepoints } = result.analysis.timeline;
+  let seen = 0;
+  for (let t = -1; t < timepoints.length; t++) {
+    const stated = t < 0 ? header : timepoints[t]!.stated;
+    for (let i = 0; i < stated.length; i++) {
+      if (++seen % ITEMS_PER_STEP === 0) yield;
+      const s = stated[i]!;
+      const field = s.field;
+      if (!isGasPressure(field) || !s.readUnit || s.value === null || !s.item.value) continue;
+      if (s.item.implied === 'shorthand') {
+        if (doneShorthand.has(s.line)) continue;
+        doneShorthand.add(s.line);
+        const node = tree.lines[s.line];
+        const sh = node ? shorthandPressures(result, node) : null;
+        if (sh) edits.push(...shorthandEdits(sh, to, bareReadsAs(s.line), choiceOf));
+        continue;
+      }
+      edits.push(...valueEdits(s, field, to, bareReadsAs(s.line), choiceOf(s)));
     }
-    edits.push(...valueEdits(s, field, to, bareReadsAs(s.line), choiceOf(s)));
   }
   return edits;
 }
