@@ -340,3 +340,28 @@ describe('values in force: where a value came from, asked without building it', 
     }), { numRuns: 300 });
   });
 });
+
+describe('values in force: a setting is looked for only where its section holds it', () => {
+  // A read looks for a held setting only in the held maps of its field's sections (a measurement
+  // in none): this holds as long as every value is stated on a line of one of its field's sections.
+  it('finds by id every value its iteration lists, and no other, at every timepoint of generated notes', () => {
+    const ids = FIELDS.map((f) => f.id);
+    fc.assert(fc.property(nearlyValidNote, (text) => {
+      const tl = timeline(`patient age 60 y, weight 70 kg\nplace altitude 1200 m\n${text}`);
+      for (const s of tl.header) expect(s.field.sections).toContain(s.section);
+      for (const tp of tl.timepoints) {
+        const listed = new Map(tp.values);
+        for (const [id, v] of listed) {
+          expect(v).toBeDefined();
+          expect(v.stated.fieldId).toBe(id);
+          expect(v.stated.field.sections).toContain(v.stated.section);
+        }
+        for (const id of ids) {
+          expect(tp.values.has(id)).toBe(listed.has(id));
+          expect(tp.values.get(id)).toEqual(listed.get(id));
+        }
+        for (const s of tp.stated) expect(s.field.sections).toContain(s.section);
+      }
+    }), { numRuns: 300 });
+  });
+});

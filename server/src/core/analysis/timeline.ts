@@ -835,7 +835,7 @@ function sameParts(a: readonly number[] | null, b: readonly number[] | null): bo
 class ValuesAt implements ValuesInForce {
   private full: Map<string, InputValue> | null = null;
   /**
-   * The fields measured here as bits (see FIELD_INDEX), made on the first read; -1 until then.
+   * The fields measured here as bits (see FIELD_SLOT), made on the first read; -1 until then.
    * The derivation and the checks ask a timepoint for a field some twenty times, and half the
    * fields asked are not measured there: the bits answer those without a walk of the stated values.
    */
@@ -879,9 +879,10 @@ class ValuesAt implements ValuesInForce {
   /** The measurement or reading of a field stated here (the last of them wins). */
   private measuredHere(id: string): StatedValue | undefined {
     if (this.measuredLow < 0) this.markMeasured();
-    const index = FIELD_INDEX.get(id);
+    const slot = FIELD_SLOT.get(id);
     // A stated value's field is always one of the registry's.
-    if (index === undefined) return undefined;
+    if (slot === undefined) return undefined;
+    const index = slot >> HELD_BITS;
     const bits = index < MASK_BITS ? this.measuredLow : this.measuredHigh;
     if ((bits & (1 << (index % MASK_BITS))) === 0) return undefined;
     const stated = this.stated;
@@ -897,7 +898,7 @@ class ValuesAt implements ValuesInForce {
     let high = 0;
     for (const s of this.stated) {
       if (!s.hereOnly) continue;
-      const index = FIELD_INDEX.get(s.fieldId)!;
+      const index = FIELD_SLOT.get(s.fieldId)! >> HELD_BITS;
       if (index < MASK_BITS) low |= 1 << index;
       else high |= 1 << (index - MASK_BITS);
     }
@@ -905,10 +906,18 @@ class ValuesAt implements ValuesInForce {
     this.measuredHigh = high;
   }
 
-  /** A field is held in one map only (an oxygen line empties the ventilator's and back). */
+  /**
+   * A field is held in one map only (an oxygen line empties the ventilator's and back), and only in
+   * the maps of its sections (FIELD_SLOT): a measurement (`pao2`) is looked up in none of them.
+   */
   private heldFor(id: string): Held | undefined {
-    const { vent, oxygen, place, patient } = this.state;
-    return vent.get(id) ?? oxygen.get(id) ?? place.get(id) ?? patient.get(id);
+    const slot = FIELD_SLOT.get(id);
+    if (slot === undefined) return undefined;
+    const state = this.state;
+    return ((slot & HELD_IN_VENT) !== 0 ? state.vent.get(id) : undefined) ??
+      ((slot & HELD_IN_OXYGEN) !== 0 ? state.oxygen.get(id) : undefined) ??
+      ((slot & HELD_IN_PLACE) !== 0 ? state.place.get(id) : undefined) ??
+      ((slot & HELD_IN_PATIENT) !== 0 ? state.patient.get(id) : undefined);
   }
 
   /** Settings (patient, place, oxygen, ventilator) in the order they are held, then what was measured here. */
@@ -933,8 +942,21 @@ class ValuesAt implements ValuesInForce {
   }
 }
 
-/** Each field's bit in a timepoint's bits of fields measured here: two words of 30 bits, small integers for V8. */
-const FIELD_INDEX: ReadonlyMap<string, number> = new Map(FIELDS.map((f, i) => [f.id, i]));
+/**
+ * Each field's slot, found with one lookup per read of a value in force: its bit in a timepoint's
+ * bits of fields measured here (two words of 30 bits, small integers for V8), shifted left by
+ * HELD_BITS, and below it which held maps may hold it. A setting is held in the map of the section
+ * whose line states it (`apply`), and a line's items are the fields of its section, so a field
+ * that no settings section has is never held, and one of the ventilator only is looked for there.
+ */
+const HELD_IN_VENT = 1;
+const HELD_IN_OXYGEN = 2;
+const HELD_IN_PLACE = 4;
+const HELD_IN_PATIENT = 8;
+const HELD_BITS = 4;
+const FIELD_SLOT: ReadonlyMap<string, number> = new Map(FIELDS.map((f, i) => [f.id, (i << HELD_BITS) |
+  (f.sections.includes('vent') ? HELD_IN_VENT : 0) | (f.sections.includes('oxygen') ? HELD_IN_OXYGEN : 0) |
+  (f.sections.includes('place') ? HELD_IN_PLACE : 0) | (f.sections.includes('patient') ? HELD_IN_PATIENT : 0)]));
 const MASK_BITS = 30;
 if (FIELDS.length > 2 * MASK_BITS) throw new Error('timeline: too many fields for the bits of fields measured at a timepoint');
 
