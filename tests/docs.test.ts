@@ -309,6 +309,7 @@ const SPEC_LINES: Readonly<Record<string, readonly string[] | { readonly on: str
   'vt 5 L': ['PN301'],
   'pco2 40 ph 7.4': [],
   'fio2 28': { on: 'vent fio2 28', codes: [] },
+  'fio2 28 %': { on: 'oxygen venturi fio2 28 %', codes: [] },
   'spo2 0.94': ['PN302'],
   'po2 9.1': ['PN204'],
 };
