@@ -263,6 +263,7 @@ const SPEC_LINES: Readonly<Record<string, readonly string[] | { readonly on: str
   'oxygen cpap 8': [],
   'oxygen venturi 8': [],
   'oxygen mask, epap 6': ['PN318'],
+  'oxygen epap 6, level 8': ['PN318'],
   '@ +2h30': [],
   '@ +2h 30m': ['PN104'],
   '@ day 2 0800': ['PN104'],
