@@ -263,6 +263,7 @@ const SPEC_LINES: Readonly<Record<string, readonly string[] | { readonly on: str
   'oxygen cpap 8': [],
   'oxygen venturi 8': [],
   'oxygen mask, epap 6': ['PN318'],
+  'oxygen epap 6, level 8': ['PN318'],
   '@ +2h30': [],
   '@ +2h 30m': ['PN104'],
   '@ day 2 0800': ['PN104'],
@@ -309,6 +310,7 @@ const SPEC_LINES: Readonly<Record<string, readonly string[] | { readonly on: str
   'vt 5 L': ['PN301'],
   'pco2 40 ph 7.4': [],
   'fio2 28': { on: 'vent fio2 28', codes: [] },
+  'fio2 28 %': { on: 'oxygen venturi fio2 28 %', codes: [] },
   'spo2 0.94': ['PN302'],
   'po2 9.1': ['PN204'],
 };

@@ -173,8 +173,9 @@ describe('a pressure of the other support beside `niv` or `cpap` (PN318)', () =>
     expect(at('oxygen cpap 8, ipap 14')).toEqual(['ipap 14']);
   });
 
-  it('stays silent on the support\'s own pressures, on pressures without a device, and on a pressure of 0', () => {
-    for (const line of ['oxygen niv ipap 14, epap 6', 'oxygen cpap level 8', 'oxygen cpap 8', 'oxygen ipap 14, epap 6, level 8', 'oxygen niv ipap 14, epap 6, level 0', 'oxygen cpap 8, epap 0']) {
+  // Pressures of both supports with no device (`oxygen ipap 14, epap 6, level 8`) are reported: see below.
+  it('stays silent on the support\'s own pressures, on one support\'s pressures without a device, and on a pressure of 0', () => {
+    for (const line of ['oxygen niv ipap 14, epap 6', 'oxygen cpap level 8', 'oxygen cpap 8', 'oxygen ipap 14, epap 6', 'oxygen niv ipap 14, epap 6, level 0', 'oxygen cpap 8, epap 0']) {
       expect(pn318(`@ 08:00\n${line}`), line).toEqual([]);
     }
   });
@@ -287,5 +288,53 @@ describe('a pair after `niv` (PN105)', () => {
     for (const line of ['oxygen niv 6/16', 'oxygen niv 8/8', 'oxygen cpap 16/6', 'oxygen mask 16/6', 'oxygen niv ipap 16, 16/6']) {
       expect(pn105(line).flatMap((f) => f.fixes), line).toEqual([]);
     }
+  });
+});
+
+// With no device named, the one rule (`noninvasiveSupport`) reads an oxygen line with an IPAP or an
+// EPAP as NIV, and one with only a CPAP level as CPAP. A line that writes a CPAP level beside an
+// IPAP or an EPAP (`oxygen epap 6, level 8`) holds pressures of two supports: it reads as NIV, and
+// its level, which NIV does not give, was left unused in silence. Bilevel support gives an IPAP
+// and an EPAP, CPAP one level (common practice, no source). It is now reported, as beside a device.
+describe('a CPAP level beside an IPAP or an EPAP with no device named (PN318)', () => {
+  it('fires at the level, says the line reads as NIV, and does not use the level', () => {
+    const text = `${PATIENT}@ 08:00\noxygen epap 6, level 8\nvent peak 18, plateau 16`;
+    const f = pn318(text);
+    expect(f.map((x) => [x.range.start.line, x.range.start.character, x.range.end.character, x.severity])).toEqual([[2, 15, 22, 'warning']]);
+    expect(f[0]!.message).toBe('`level 8` beside `epap 6`, with no device named: an IPAP or an EPAP makes the line NIV, which gives an IPAP and an EPAP, not one CPAP level, so the CPAP level is not used (not as the end-expiratory pressure either). If NIV is given, remove the level; if CPAP, remove the EPAP. Naming the device (`niv` or `cpap`) says which.');
+    // Driving pressure Pplat − EPAP = 16 − 6 = 10 cmH2O (Amato MBP et al., "Driving pressure and
+    // survival in the acute respiratory distress syndrome", NEJM 2015;372:747–755): the EPAP, not the level.
+    expect(derivation(text).derived.find((v) => v.id === 'driving_pressure')?.value).toBe(10);
+    expect(pn318(`@ 08:00\noxygen ipap 12, level 8`).map((x) => x.message)).toEqual([expect.stringMatching(/^`level 8` beside `ipap 12`, with no device named: .*If NIV is given, remove the level; if CPAP, remove the IPAP\./)]);
+  });
+
+  it('offers to remove the level (NIV) or the IPAP and EPAP (CPAP at the level); each leaves the line without PN318', () => {
+    const text = '@ 08:00\noxygen epap 6, level 8, fio2 0.4';
+    const [f] = pn318(text);
+    expect(f!.fixes.map((x) => x.title)).toEqual(['Remove `level 8`', 'Remove `epap 6`']);
+    expect(applyEdits(text, f!.fixes[0]!.edits).split('\n')[1]).toBe('oxygen epap 6, fio2 0.4');
+    expect(applyEdits(text, f!.fixes[1]!.edits).split('\n')[1]).toBe('oxygen level 8, fio2 0.4');
+    const both = '@ 08:00\noxygen ipap 14, epap 6, level 8';
+    const [g] = pn318(both);
+    expect(g!.fixes.map((x) => x.title)).toEqual(['Remove `level 8`', 'Remove `ipap 14` and `epap 6`']);
+    expect(applyEdits(both, g!.fixes[1]!.edits).split('\n')[1]).toBe('oxygen level 8');
+    for (const [t, finding] of [[text, f!], [both, g!]] as const) {
+      for (const fix of finding.fixes) expect(pn318(applyEdits(t, fix.edits)), fix.title).toEqual([]);
+    }
+    expect(f!.fixes.some((x) => x.preferred === true)).toBe(false);
+  });
+
+  it('stays silent on one support\'s pressures alone (the device is inferred), on a level of 0, and on a named device that gives the pressures', () => {
+    for (const line of ['oxygen epap 6', 'oxygen ipap 12', 'oxygen level 8', 'oxygen ipap 12, epap 6', 'oxygen epap 6, level 0', 'oxygen niv ipap 12, epap 6', 'oxygen cpap level 8']) {
+      expect(pn318(`@ 08:00\n${line}`), line).toEqual([]);
+    }
+    // The inferred support: an EPAP alone is NIV, a level alone CPAP; each one's pressure is the end-expiratory one.
+    expect(derivation(`${PATIENT}@ 08:00\noxygen epap 6\nvent peak 18, plateau 16`).derived.find((v) => v.id === 'driving_pressure')?.value).toBe(10);
+    expect(derivation(`${PATIENT}@ 08:00\noxygen level 8\nvent peak 18, plateau 16`).derived.find((v) => v.id === 'driving_pressure')?.value).toBe(8);
+  });
+
+  it('the hover of the level says why it is not used', () => {
+    const { result, position } = noteAt('@ 08:00\noxygen epap 6, lev|el 8');
+    expect(hoverAt(result, position)?.markdown).toContain('Not used in calculations: with no device named, the EPAP on this line makes it NIV, which gives an IPAP and an EPAP, not one CPAP level (PN318).');
   });
 });

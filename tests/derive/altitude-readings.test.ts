@@ -18,26 +18,26 @@ describe('at PB 600 mmHg', () => {
   it('hypoxaemia with a normal PaCO2 and gradient is type 1 from low inspired oxygen alone (PAO2 116.1 − 50 = 66.1, A–a 8 mmHg)', () => {
     const r = readings(at(600, 'abg 7.39/40/58/24'));
     expect(r['respiratory-failure']).toBe('Consistent with type 1 (hypoxaemic) respiratory failure: hypoxaemia with normal or low PaCO2 (PaO2 58 mmHg, below 60 mmHg; PaCO2 40 mmHg, not above 50 mmHg).');
-    expect(r['hypoxaemia-mechanism']).toBe('Hypoxaemia consistent with low inspired oxygen (PiO2 116 mmHg). The A–a gradient (8 mmHg) is within the age-based normal of 14 mmHg.');
+    expect(r['hypoxaemia-mechanism']).toBe('Consistent with hypoxaemia from low inspired oxygen (PiO2 116 mmHg). The A–a gradient (8 mmHg) is within the age-based normal of 14 mmHg.');
   });
 
   it('hypoventilation there is type 2, from low inspired oxygen and hypoventilation with a normal gradient (PAO2 116.1 − 72.5 = 43.6, A–a 4 mmHg)', () => {
     const r = readings(at(600, 'abg 7.30/58/40/27.8'));
     expect(r['respiratory-failure']).toBe('Consistent with type 2 (hypercapnic) respiratory failure: hypoxaemia with hypercapnia (PaO2 40 mmHg, below 60 mmHg; PaCO2 58 mmHg, above 50 mmHg).');
-    expect(r['hypoxaemia-mechanism']).toBe('Hypoxaemia consistent with a mix of low inspired oxygen (PiO2 116 mmHg) and hypoventilation (PaCO2 58 mmHg). The A–a gradient (4 mmHg) is within the age-based normal of 14 mmHg.');
+    expect(r['hypoxaemia-mechanism']).toBe('Consistent with hypoxaemia from a mix of low inspired oxygen (PiO2 116 mmHg) and hypoventilation (PaCO2 58 mmHg). The A–a gradient (4 mmHg) is within the age-based normal of 14 mmHg.');
   });
 
   it('a raised gradient there adds V/Q mismatch or shunt (PAO2 116.1 − 37.5 = 78.6, A–a 34 mmHg)', () => {
     const r = readings(at(600, 'abg 7.48/30/45/22.3'));
     expect(r['respiratory-failure']).toBe('Consistent with type 1 (hypoxaemic) respiratory failure: hypoxaemia with normal or low PaCO2 (PaO2 45 mmHg, below 60 mmHg; PaCO2 30 mmHg, not above 50 mmHg).');
-    expect(r['hypoxaemia-mechanism']).toBe('Hypoxaemia consistent with a mix of low inspired oxygen (PiO2 116 mmHg) and a raised A–a gradient (34 mmHg, above 14 mmHg): V/Q mismatch, shunt or a diffusion limit.');
+    expect(r['hypoxaemia-mechanism']).toBe('Consistent with hypoxaemia from a mix of low inspired oxygen (PiO2 116 mmHg) and a raised A–a gradient (34 mmHg, above 14 mmHg): V/Q mismatch, shunt or a diffusion limit.');
   });
 });
 
 describe('the same gas at PB 760 mmHg', () => {
   it('PaCO2 58, PaO2 40: PAO2 149.7 − 72.5 = 77.2, A–a 37 mmHg: hypoventilation and a raised gradient, not low inspired oxygen', () => {
     const r = readings(at(760, 'abg 7.30/58/40/27.8'));
-    expect(r['hypoxaemia-mechanism']).toBe('Hypoxaemia consistent with a mix of hypoventilation (PaCO2 58 mmHg) and a raised A–a gradient (37 mmHg, above 14 mmHg): V/Q mismatch, shunt or a diffusion limit.');
+    expect(r['hypoxaemia-mechanism']).toBe('Consistent with hypoxaemia from a mix of hypoventilation (PaCO2 58 mmHg) and a raised A–a gradient (37 mmHg, above 14 mmHg): V/Q mismatch, shunt or a diffusion limit.');
   });
 });
 
@@ -48,13 +48,13 @@ describe('hypoxaemia with a normal gradient and no single cause past its thresho
     const note = 'patient age 60 y\nplace barometric 715 mmHg\n@ 08:00\noxygen room air\nabg 7.35/50/59/27';
     expect(derived(note, 'pio2').value).toBeCloseTo(140.28, 1);
     expect(derived(note, 'aa_gradient').value).toBeCloseTo(18.78, 1);
-    expect(readings(note)['hypoxaemia-mechanism']).toBe('Hypoxaemia consistent with a low alveolar PO2 (PAO2 78 mmHg) from mild hypoventilation (PaCO2 50 mmHg, above 45 mmHg but not above 50 mmHg) and a PiO2 a little below that of air at sea level (140.3 mmHg, about 150 mmHg there), neither past its own threshold. The A–a gradient (18.8 mmHg) is within the age-based normal of 19 mmHg.');
+    expect(readings(note)['hypoxaemia-mechanism']).toBe('Consistent with hypoxaemia from a low alveolar PO2 (PAO2 78 mmHg) from mild hypoventilation (PaCO2 50 mmHg, above 45 mmHg but not above 50 mmHg) and a PiO2 a little below that of air at sea level (140.3 mmHg, about 150 mmHg there), neither past its own threshold. The A–a gradient (18.8 mmHg) is within the age-based normal of 19 mmHg.');
   });
 
   it('the same gas with the hypoxaemia threshold set above what the values explain is still sent back to its inputs', () => {
     // PaO2 88 under a threshold of 90 mmHg (a setting), PaCO2 40, PiO2 149.7: PAO2 99.7, A–a 11.7 mmHg; nothing lowers the alveolar PO2.
     const note = 'patient age 60 y\n@ 08:00\noxygen room air\nabg 7.40/40/88/24';
-    expect(readings(note, { hypoxaemiaBelowMmhg: 90 })['hypoxaemia-mechanism']).toMatch(/^Hypoxaemia without a low PiO2, hypercapnia or a raised A–a gradient: recheck the inputs\./);
+    expect(readings(note, { hypoxaemiaBelowMmhg: 90 })['hypoxaemia-mechanism']).toMatch(/^Consistent with hypoxaemia, yet without a low PiO2, hypercapnia or a raised A–a gradient: recheck the inputs\./);
   });
 });
 
@@ -71,7 +71,7 @@ describe('a place stated but not usable', () => {
   it.each(notes)('gives no PB, PiO2, PAO2 or A–a gradient, and says what to add: %s', (note) => {
     expect(() => derived(note, 'pio2')).toThrow(/a usable barometric pressure or altitude/);
     expect(() => derived(note, 'aa_gradient')).toThrow(/not derived/);
-    expect(readings(note)['hypoxaemia-mechanism']).toBe('Mechanism of hypoxaemia not assessed: add a usable barometric pressure or altitude (the one on the place line is not used: see its finding) to get the A–a gradient.');
+    expect(readings(note)['hypoxaemia-mechanism']).toBe('Consistent with hypoxaemia, its mechanism not assessed: add a usable barometric pressure or altitude (the one on the place line is not used: see its finding) to get the A–a gradient.');
   });
   it('with the unit written, the same altitude gives PiO2 ≈ 94 mmHg (West 1996 model, from memory)', () => {
     expect(derived('patient age 40 y\nplace altitude 12000 ft\n@ 08:00\noxygen room air\nabg 7.40/40/50/24', 'pio2').value).toBeCloseTo(94.2, 0);

@@ -28,7 +28,7 @@ describe('readings on a carried FiO2 and PEEP', () => {
     expect(r.oxygenation).toBe('PaO2 58 mmHg: consistent with moderate hypoxaemia (below 60 mmHg) despite FiO2 0.60 (carried from line 3).');
     expect(r['oxygenation-band']).toMatch(/^P\/F 97 mmHg with PEEP 10 cmH2O \(FiO2 and PEEP carried from line 3\): consistent with the ≤ 100 mmHg oxygenation band/);
     // PiO2 0.60 × (760 − 47) = 427.8, PAO2 427.8 − 45 ÷ 0.8 = 371.6, A–a 314 mmHg (simplified alveolar gas equation, common practice).
-    expect(r['hypoxaemia-mechanism']).toBe('Hypoxaemia consistent with a raised A–a gradient (314 mmHg, above 20 mmHg): V/Q mismatch, shunt or a diffusion limit. The PiO2 uses FiO2 0.60 (carried from line 3). On supplemental oxygen the normal gradient is wider than the air-based limit.');
+    expect(r['hypoxaemia-mechanism']).toBe('Consistent with hypoxaemia from a raised A–a gradient (314 mmHg, above 20 mmHg): V/Q mismatch, shunt or a diffusion limit. The PiO2 uses FiO2 0.60 (carried from line 3). On supplemental oxygen the normal gradient is wider than the air-based limit.');
   });
 
   it('say nothing of carrying where the settings were stated with the gas', () => {

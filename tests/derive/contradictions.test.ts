@@ -29,7 +29,7 @@ describe('an alveolar PO2 that comes out negative', () => {
   it('gives no A–a gradient and says why, instead of asking for an FiO2 that is there', () => {
     const d = derivation(note);
     expect(d.notApplicable.find((n) => n.id === 'aa_gradient')?.reason).toMatch(/alveolar PO2 comes out negative/);
-    expect(readings(note)['hypoxaemia-mechanism']).toMatch(/^Mechanism of hypoxaemia not assessed: the FiO2, pressure, PaCO2 and PaO2 stated cannot go together/);
+    expect(readings(note)['hypoxaemia-mechanism']).toMatch(/^Consistent with hypoxaemia, its mechanism not assessed: the FiO2, pressure, PaCO2 and PaO2 stated cannot go together/);
     expect(readings(note)['hypoxaemia-mechanism']).not.toMatch(/add fio2/);
   });
 });
@@ -38,7 +38,7 @@ describe('hypercapnia without hypoxaemia (hypoxaemia PaO2 < 60, hypercapnia PaCO
   it('makes no negative statement when no FiO2 is stated: oxygen may hold the PaO2 up', () => {
     // On air at PB 760, PAO2 = 0.21 × 713 − 60 ÷ 0.8 ≈ 75 mmHg: a PaO2 of 90 would need oxygen.
     const r = readings('@ 08:00\nabg 7.24/60/90/26');
-    expect(r['respiratory-failure']).toMatch(/^Hypercapnia \(PaCO2 60 mmHg, above 50 mmHg\) with PaO2 90 mmHg, not below 60 mmHg, and no FiO2 stated: on supplemental oxygen this would be consistent with type 2 \(hypercapnic\) respiratory failure; add fio2 \(or an oxygen line\) to tell\.$/);
+    expect(r['respiratory-failure']).toMatch(/^Consistent with hypercapnia \(PaCO2 60 mmHg, above 50 mmHg\) with PaO2 90 mmHg, not below 60 mmHg, and no FiO2 stated: on supplemental oxygen this would be consistent with type 2 \(hypercapnic\) respiratory failure; add fio2 \(or an oxygen line\) to tell\.$/);
     expect(r['respiratory-failure']).not.toMatch(/not consistent/);
   });
 
@@ -50,7 +50,7 @@ describe('hypercapnia without hypoxaemia (hypoxaemia PaO2 < 60, hypercapnia PaCO
   it('on air, reads hypercapnia without hypoxaemia as ventilatory failure short of the type 2 definition, never as no failure', () => {
     // Type 2 failure: hypoxaemia (PaO2 < 60 mmHg) with hypercapnia (PaCO2 > 50 mmHg) (common practice, no source).
     const r = readings('@ 08:00\noxygen room air\nabg 7.33/52/70/27');
-    expect(r['respiratory-failure']).toBe('Hypercapnia (PaCO2 52 mmHg, above 50 mmHg) without hypoxaemia on air (PaO2 70 mmHg, not below 60 mmHg): consistent with ventilatory (hypercapnic) failure; type 2 respiratory failure, as Pneumark reads it, also needs hypoxaemia.');
+    expect(r['respiratory-failure']).toBe('Consistent with hypercapnia (PaCO2 52 mmHg, above 50 mmHg) without hypoxaemia on air (PaO2 70 mmHg, not below 60 mmHg), and so with ventilatory (hypercapnic) failure; type 2 respiratory failure, as Pneumark reads it, also needs hypoxaemia.');
     expect(r['respiratory-failure']).not.toMatch(/not consistent/);
   });
 });

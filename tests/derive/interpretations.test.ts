@@ -47,7 +47,7 @@ describe('oxygenation, ventilation and respiratory failure', () => {
     expect(r.oxygenation).toMatch(/consistent with moderate hypoxaemia/);
     expect(r.ventilation).toMatch(/consistent with hypercapnia/);
     expect(r['respiratory-failure']).toBe('Consistent with type 2 (hypercapnic) respiratory failure: hypoxaemia with hypercapnia (PaO2 55 mmHg, below 60 mmHg; PaCO2 70 mmHg, above 50 mmHg).');
-    expect(r['hypoxaemia-mechanism']).toMatch(/^Hypoxaemia consistent with hypoventilation \(PaCO2 70 mmHg\)\. The A–a gradient \(\d mmHg\) is within the age-based normal of 14 mmHg\.$/);
+    expect(r['hypoxaemia-mechanism']).toMatch(/^Consistent with hypoxaemia from hypoventilation \(PaCO2 70 mmHg\)\. The A–a gradient \(\d mmHg\) is within the age-based normal of 14 mmHg\.$/);
   });
 
   it('type 1 is hypoxaemia without hypercapnia: a PaCO2 above 45 but not above 50 mmHg is named raised, not normal (type 1 and 2 by PaCO2: common practice, no source; hypercapnia > 50 mmHg pinned in shared/REFERENCES.md)', () => {
@@ -62,13 +62,13 @@ describe('oxygenation, ventilation and respiratory failure', () => {
     // from memory). HCO3 here is chosen to fit pH and PaCO2.
     const r = readings('patient age 35 y\nplace barometric 272 mmHg\n@ 08:00\noxygen room air\nabg ph 7.53, pco2 13.3, po2 24.6, hco3 11');
     expect(r['respiratory-failure']).toBe('Consistent with type 1 (hypoxaemic) respiratory failure: hypoxaemia with normal or low PaCO2 (PaO2 25 mmHg, below 60 mmHg; PaCO2 13 mmHg, not above 50 mmHg).');
-    expect(r['hypoxaemia-mechanism']).toMatch(/^Hypoxaemia consistent with low inspired oxygen \(PiO2 47 mmHg\)\. The A–a gradient \(6 mmHg\) is within the age-based normal of 13 mmHg\./);
+    expect(r['hypoxaemia-mechanism']).toMatch(/^Consistent with hypoxaemia from low inspired oxygen \(PiO2 47 mmHg\)\. The A–a gradient \(6 mmHg\) is within the age-based normal of 13 mmHg\./);
     expect(r.ventilation).toMatch(/consistent with hypocapnia/);
   });
 
   it('reads a raised gradient on air as V/Q mismatch, shunt or diffusion limit', () => {
     const r = readings('patient age 60 y\n@ 08:00\noxygen room air\nabg 7.46/32/52/22.7');
-    expect(r['hypoxaemia-mechanism']).toMatch(/^Hypoxaemia consistent with a raised A–a gradient \(58 mmHg, above 19 mmHg\): V\/Q mismatch, shunt or a diffusion limit\.$/);
+    expect(r['hypoxaemia-mechanism']).toMatch(/^Consistent with hypoxaemia from a raised A–a gradient \(58 mmHg, above 19 mmHg\): V\/Q mismatch, shunt or a diffusion limit\.$/);
   });
 
   it('reads hypercapnia held up by oxygen as type 2 failure', () => {

@@ -50,7 +50,7 @@ describe('PaO2 at 60 mmHg and just either side', () => {
   });
 
   it('a PaO2 at the threshold with hypercapnia and no FiO2 is "not below" it, never "above" it', () => {
-    expect(readings('@ 08:00\nabg 7.30/58/60/27.8')['respiratory-failure']).toMatch(/^Hypercapnia \(PaCO2 58 mmHg, above 50 mmHg\) with PaO2 60 mmHg, not below 60 mmHg, and no FiO2 stated/);
+    expect(readings('@ 08:00\nabg 7.30/58/60/27.8')['respiratory-failure']).toMatch(/^Consistent with hypercapnia \(PaCO2 58 mmHg, above 50 mmHg\) with PaO2 60 mmHg, not below 60 mmHg, and no FiO2 stated/);
   });
 });
 

@@ -26,7 +26,7 @@ const gasNote = note(
 
 describe('what the hints say', () => {
   it('after a gas line: P/F, A–a with its upper normal, and a short acid–base reading', () => {
-    expect(labelsByLine(gasNote)[3]).toBe('P/F 178 · A–a 144 (≤ 19) · resp. acidosis, acute');
+    expect(labelsByLine(gasNote)[3]).toBe('P/F 178 · A–a 144 (≤ 19) · consistent with resp. acidosis, acute');
   });
 
   it('after a vent line with a plateau: driving pressure, VT per kg PBW, static compliance', () => {
@@ -87,7 +87,7 @@ describe('which hints are given', () => {
 
   it('only the requested categories', () => {
     const hints = hintsOf(gasNote, { categories: new Set<HintCategory>(['acid-base']) });
-    expect(hints.map((h) => h.label)).toEqual(['resp. acidosis, acute']);
+    expect(hints.map((h) => h.label)).toEqual(['consistent with resp. acidosis, acute']);
     expect(hintsOf(gasNote, { categories: new Set<HintCategory>() })).toEqual([]);
   });
 
@@ -117,15 +117,30 @@ describe('which hints are given', () => {
 
 describe('acidBaseLabel', () => {
   it('writes a compact form from the classification words', () => {
-    expect(acidBaseLabel('Consistent with acute respiratory acidosis.')).toBe('resp. acidosis, acute');
-    expect(acidBaseLabel('Consistent with acute respiratory acidosis; also consistent with an added metabolic acidosis.')).toBe('resp. acidosis, acute + met. acidosis');
-    expect(acidBaseLabel('Consistent with metabolic acidosis with a high anion gap; with the expected respiratory response (PaCO2 30–34 mmHg).')).toBe('met. acidosis, high AG');
-    expect(acidBaseLabel('Consistent with a fully compensated chronic respiratory acidosis.')).toBe('resp. acidosis, chronic, compensated');
-    expect(acidBaseLabel('Consistent with respiratory acidosis; between the acute and chronic ranges (evolving, or acute on chronic).')).toBe('resp. acidosis, acute on chronic?');
-    expect(acidBaseLabel('Consistent with metabolic acidosis; PaCO2 48 mmHg is above the expected 30–34 mmHg: consistent with an added respiratory acidosis.')).toBe('met. acidosis + resp. acidosis?');
-    expect(acidBaseLabel('Consistent with a mixed metabolic and respiratory acidosis.')).toBe('mixed acidosis');
+    expect(acidBaseLabel('Consistent with acute respiratory acidosis.')).toBe('consistent with resp. acidosis, acute');
+    expect(acidBaseLabel('Consistent with acute respiratory acidosis; also consistent with an added metabolic acidosis.')).toBe('consistent with resp. acidosis, acute + met. acidosis');
+    expect(acidBaseLabel('Consistent with metabolic acidosis with a high anion gap; with the expected respiratory response (PaCO2 30–34 mmHg).')).toBe('consistent with met. acidosis, high AG');
+    expect(acidBaseLabel('Consistent with a fully compensated chronic respiratory acidosis.')).toBe('consistent with resp. acidosis, chronic, compensated');
+    expect(acidBaseLabel('Consistent with respiratory acidosis; between the acute and chronic ranges (evolving, or acute on chronic).')).toBe('consistent with resp. acidosis, acute on chronic?');
+    expect(acidBaseLabel('Consistent with metabolic acidosis; PaCO2 48 mmHg is above the expected 30–34 mmHg: consistent with an added respiratory acidosis.')).toBe('consistent with met. acidosis + resp. acidosis?');
+    expect(acidBaseLabel('Consistent with a mixed metabolic and respiratory acidosis.')).toBe('consistent with mixed acidosis');
     expect(acidBaseLabel('Acid–base reading undetermined: the pH does not follow the PaCO2 and HCO3.')).toBe('acid–base unclear');
-    expect(acidBaseLabel('Consistent with normal acid–base balance; also consistent with an added metabolic acidosis and metabolic alkalosis.')).toBe('normal pH + met. acidosis + met. alkalosis');
+    expect(acidBaseLabel('Consistent with normal acid–base balance; also consistent with an added metabolic acidosis and metabolic alkalosis.')).toBe('normal pH; consistent with met. acidosis + met. alkalosis');
     expect(acidBaseLabel('Nothing to say here.')).toBeNull();
+  });
+
+  // Every interpretation says "consistent with" (project rule); the inlay label is one too.
+  it('says "consistent with" before any disorder it names, and names none bare', () => {
+    for (const text of [
+      'Consistent with acute respiratory acidosis.',
+      'Consistent with metabolic alkalosis.',
+      'Consistent with a mixed metabolic and respiratory alkalosis.',
+      'Consistent with normal acid–base balance; also consistent with an added metabolic acidosis.',
+    ]) {
+      const label = acidBaseLabel(text)!;
+      const at = label.search(/acidosis|alkalosis/);
+      expect(at, label).toBeGreaterThan(0);
+      expect(label.slice(0, at), label).toContain('consistent with ');
+    }
   });
 });

@@ -102,6 +102,25 @@ export function deviceWithoutPressure(stated: readonly StatedValue[], pressure: 
   return null;
 }
 
+/**
+ * With no device named on the line of `pressure` (a CPAP level above 0 stated at a timepoint;
+ * `stated` the values stated there): the first IPAP or EPAP written on that line, which makes the
+ * line NIV by the one rule (`noninvasiveSupport`), so that the level is a pressure its support does
+ * not give (PN318) and is not used (`endExpiratoryField`); else null. Pressures of one support
+ * alone with no device (`oxygen epap 6`, `oxygen level 8`) make the support, and are not reported.
+ */
+export function nivPressureBesideLevel(stated: readonly StatedValue[], pressure: StatedValue): StatedValue | null {
+  if (pressure.section !== 'oxygen' || pressure.fieldId !== 'cpap_level' || pressure.value === 0) return null;
+  let niv: StatedValue | null = null;
+  for (let i = 0; i < stated.length; i++) {
+    const s = stated[i]!;
+    if (s.line !== pressure.line || s.section !== 'oxygen') continue;
+    if (s.fieldId === 'device') return null;
+    if (niv === null && (s.fieldId === 'ipap' || s.fieldId === 'epap')) niv = s;
+  }
+  return niv;
+}
+
 /** The values in force, asked for numbers without building values. */
 export interface NumbersInForce {
   numberOf(fieldId: string): number | null;
@@ -114,14 +133,17 @@ const CPAP_FIRST: readonly ['cpap_level', 'epap'] = ['cpap_level', 'epap'];
  * The oxygen-line pressure in force taken as the end-expiratory pressure where no PEEP is (the
  * oxygenation band, driving pressure, the compliances, PN314): the one the device gives, the CPAP
  * level under `cpap` and else the EPAP first; none that the device does not give (PN318), but one
- * of 0 (no pressure, which any device agrees with). Null when none is.
+ * of 0 (no pressure, which any device agrees with), nor, with no device named, a CPAP level beside
+ * an IPAP, which makes the line NIV (PN318). Null when none is.
  */
 export function endExpiratoryField(device: string | null, values: NumbersInForce): 'epap' | 'cpap_level' | null {
   const order = device !== null && supportOfDevice(device) === 'cpap' ? CPAP_FIRST : NIV_FIRST;
   for (let i = 0; i < order.length; i++) {
     const id = order[i]!;
     const value = values.numberOf(id);
-    if (value !== null && (value === 0 || givesPressure(device, id))) return id;
+    // With no device, an IPAP makes the line NIV (`noninvasiveSupport`), which gives no CPAP level
+    // (PN318: `oxygen ipap 12, level 8`); an EPAP, which would too, is taken before the level.
+    if (value !== null && (value === 0 || givesPressure(device, id)) && (device !== null || id !== 'cpap_level' || value === 0 || values.numberOf('ipap') === null)) return id;
   }
   return null;
 }

@@ -86,6 +86,34 @@ export const badShorthand = syntaxCheck('PN106', 'bad-shorthand', 'Unreadable sh
   fix: 'Keep the order pH/PCO2/PO2/HCO3 and write further values as items: `abg 7.28/56/71/26, be -2`.',
 });
 
+/**
+ * A bare number of a Venturi setting after `venturi` (`oxygen venturi 28`), which the parser reads
+ * as the FiO2 in % (`venturiNumberKey`): said, so the reading is seen, with fixes that write it.
+ */
+export const venturiSetting = defineCheck({
+  code: 'PN321',
+  alias: 'venturi-setting',
+  title: 'Bare number after venturi read as its FiO2',
+  severity: 'information',
+  tags: ['plausibility'],
+  doc: {
+    fires: 'The number right after `venturi` on an oxygen line is written bare and is one of the oxygen percentages of the Venturi settings, 24 to 60 (`oxygen venturi 28`). A Venturi mask is set by the oxygen fraction it gives, at a flow of some 2 to 15 L/min the device names, so the number is read as the FiO2 in % (28 %), not as a flow of 28 L/min, and used as a stated FiO2 (P/F, A–a gradient). Not reported where the number can only be the FiO2 or only a flow, and read as such: a fraction up to 1 (`venturi 0.4`) or a percentage (`venturi 40 %`) is the FiO2, a number in L/min (`venturi 8 L/min`) or any other bare number (`venturi 8`) the flow.',
+    example: '@ 08:00\noxygen venturi 28',
+    fix: 'Write which it is: `venturi fio2 28 %` for the FiO2 read, or `venturi 28 L/min` for a flow. The quick fixes write each.',
+  },
+  source: "O'Driscoll BR, Howard LS, Earis J, Mak V, on behalf of the British Thoracic Society Emergency Oxygen Guideline Group. BTS guideline for oxygen use in adults in healthcare and emergency settings. Thorax 2017;72(Suppl 1):ii1–ii90 (Venturi settings of 24, 28, 31, 35, 40 and 60 % oxygen, each at its own oxygen flow of some 2 to 15 L/min: from memory). European Respiratory Society, European Lung White Book, Principles of respiratory therapy, figure 2: Venturi masks set the inspired oxygen concentration, colour-coded from 24 to 60 %",
+  runTimepoint(ctx) {
+    forTimepointLines(ctx, visitVenturiSetting);
+  },
+});
+
+function visitVenturiSetting(ctx: CheckContext, node: LineNode): void {
+  if (node.issues.length === 0) return;
+  for (const issue of node.issues) {
+    if (issue.check === 'venturi-setting') ctx.report({ range: toRange(node.line, issue.span), message: issue.message, fixes: lineFixesToFixes(node.line, issue.fixes) });
+  }
+}
+
 export const unknownKey = readCheck('PN201', 'unknown-key', 'Unknown key', 'error', ['units'], FORMAT_RULE, {
   fires: 'An item key is not one of the keys (or aliases) of its section.',
   example: 'vitals hr 118, rrr 26',
@@ -101,7 +129,7 @@ export const unknownUnit = readCheck('PN202', 'unknown-unit', 'Unknown unit', 'e
 export const unitNotAllowed = readCheck('PN203', 'unit-not-allowed', 'Unit not allowed for this field', 'error', ['units'], FORMAT_RULE, {
   fires: 'The unit is known but measures something else (e.g. a rate in mmHg).',
   example: 'vitals hr 118 mmHg',
-  fix: 'Write a unit the field takes, or none. A percentage after an oxygen device (`venturi 40 %`) is offered as the FiO2 it gives (`venturi fio2 40 %`) before a flow in L/min.',
+  fix: 'Write a unit the field takes, or none. A percentage after an oxygen device (`hfnc 60 %`) is offered as the FiO2 it gives (`hfnc fio2 60 %`) before a flow in L/min; after `venturi`, which is set by its FiO2, it is read as the FiO2 (PN321).',
 });
 
 export const otherUnitLikely = readCheck('PN204', 'other-unit-likely', 'Value reads as another unit', 'warning', ['units', 'plausibility'], 'common practice, no source: the soft bounds of the field registry, widened for PaO2 and PaCO2 (our convention)', {

@@ -2,15 +2,16 @@
  * A pressure of NIV or CPAP (an IPAP, an EPAP, a CPAP level) written on an oxygen line whose device
  * does not give it: a device that gives no set airway pressure (`oxygen mask, epap 6`), or the other
  * support (`oxygen cpap ipap 14, epap 6`: CPAP holds one pressure, its level; `oxygen niv level 8`:
- * bilevel support gives an IPAP and an EPAP). The one rule (`noninvasiveSupport`) lets a named
+ * bilevel support gives an IPAP and an EPAP); or, with no device named, a CPAP level beside an IPAP
+ * or an EPAP (`oxygen epap 6, level 8`), which make the line NIV. The one rule (`noninvasiveSupport`) lets a named
  * device decide the support, so the pressure cannot be what the device gives: either the device is
  * another (NIV is often given through a face mask) or the pressure does not belong there. Until the
  * line says which, the pressure is not used (`givesPressure`: not as the end-expiratory pressure,
  * not compared with a peak or with the other pressure).
  */
 import type { StatedValue } from '../analysis/model';
-import { deviceWithoutPressure, supportOfDevice, supportOfPressure, type NoninvasiveSupport } from '../analysis/noninvasive-support';
-import type { SectionLine } from '../syntax/tree';
+import { deviceWithoutPressure, nivPressureBesideLevel, supportOfDevice, supportOfPressure, type NoninvasiveSupport } from '../analysis/noninvasive-support';
+import type { ItemNode, SectionLine } from '../syntax/tree';
 import { toRange } from '../syntax/tree';
 import type { Fix, TextEdit } from '../types';
 import { defineCheck, type TimepointContext } from './check';
@@ -22,9 +23,9 @@ export const pressureWithoutSupport = defineCheck({
   severity: 'warning',
   tags: ['plausibility'],
   doc: {
-    fires: 'An oxygen line names a device and also writes a pressure of non-invasive support above 0 that the device does not give: an `ipap`, an `epap` or a CPAP `level` beside a device that gives no set airway pressure (room air, a cannula, a mask, a venturi or reservoir mask, high flow: `oxygen mask, epap 6`), an `ipap` or an `epap` beside `cpap`, which holds one pressure, its level (`oxygen cpap ipap 14, epap 6`), or a `level` beside `niv`, which gives an IPAP and an EPAP (`oxygen niv level 8`). A pressure of 0 is none, as any device gives. The named device decides what the line is, so either the device or the pressure is wrong. Until the line is mended the pressure is not used at that timepoint (nor where the line carries): not as the end-expiratory pressure of driving pressure, the compliances or the Berlin band reading (where a line writes both, the CPAP level under `cpap` and the EPAP under `niv`), and not compared with a peak (PN314) or the other pressure (PN315). The exports keep it as written. Once per pressure.',
+    fires: 'An oxygen line names a device and also writes a pressure of non-invasive support above 0 that the device does not give: an `ipap`, an `epap` or a CPAP `level` beside a device that gives no set airway pressure (room air, a cannula, a mask, a venturi or reservoir mask, high flow: `oxygen mask, epap 6`), an `ipap` or an `epap` beside `cpap`, which holds one pressure, its level (`oxygen cpap ipap 14, epap 6`), or a `level` beside `niv`, which gives an IPAP and an EPAP (`oxygen niv level 8`). With no device named, the pressures decide: an `ipap` or an `epap` makes the line NIV and a `level` alone CPAP, so a `level` beside an `ipap` or an `epap` (`oxygen epap 6, level 8`) is a pressure of the other support too, and is reported. A pressure of 0 is none, as any device gives. The named device decides what the line is, so either the device or the pressure is wrong. Until the line is mended the pressure is not used at that timepoint (nor where the line carries): not as the end-expiratory pressure of driving pressure, the compliances or the Berlin band reading (where a line writes both, the CPAP level under `cpap` and the EPAP under `niv`), and not compared with a peak (PN314) or the other pressure (PN315). The exports keep it as written. Once per pressure.',
     example: '@ 08:00\noxygen mask, epap 6, fio2 0.5\n@ 09:00\noxygen cpap ipap 14, epap 6, fio2 0.5',
-    fix: 'NIV is often given through a face mask: if so, write `niv` as the device (`oxygen niv epap 6, fio2 0.5`), or `cpap` for a CPAP level (`oxygen cpap level 8`); if no such support is given, remove the pressure. An IPAP beside `cpap` is bilevel support: write `niv`; one level beside `niv` is continuous pressure: write `cpap`; an EPAP alone beside `cpap` is its level: write `level` for `epap`; beside the device\'s own pressure, remove the other. The quick fixes do each of these.',
+    fix: 'NIV is often given through a face mask: if so, write `niv` as the device (`oxygen niv epap 6, fio2 0.5`), or `cpap` for a CPAP level (`oxygen cpap level 8`); if no such support is given, remove the pressure. An IPAP beside `cpap` is bilevel support: write `niv`; one level beside `niv` is continuous pressure: write `cpap`; an EPAP alone beside `cpap` is its level: write `level` for `epap`; beside the device\'s own pressure, remove the other. With no device, remove the level if NIV is given, or the IPAP and EPAP if CPAP is; naming the device says which. The quick fixes do each of these.',
   },
   source: 'only NIV and CPAP devices set an airway pressure, NIV an inspiratory and an expiratory one and CPAP one level; other oxygen devices set a flow or an FiO2 (common practice, no source)',
   runTimepoint(ctx) {
@@ -36,7 +37,13 @@ export const pressureWithoutSupport = defineCheck({
       if (s.section !== 'oxygen' || supportOfPressure(s.fieldId) === null) continue;
       const device = deviceWithoutPressure(stated, s);
       const node = ctx.analysis.tree.lines[s.line];
-      if (device === null || node?.kind !== 'section') continue;
+      if (node?.kind !== 'section') continue;
+      if (device === null) {
+        // No device named: a CPAP level beside an IPAP or an EPAP, which make the line NIV.
+        const niv = nivPressureBesideLevel(stated, s);
+        if (niv !== null) ctx.report({ range: toRange(s.line, s.item.span), message: levelBesideNivMessage(node, s, niv), fixes: levelBesideNivFixes(node, s) });
+        continue;
+      }
       const deviceSupport = supportOfDevice(device.word);
       const mend = deviceSupport === null ? null : mendOf(stated, s, deviceSupport);
       ctx.report({ range: toRange(s.line, s.item.span), message: messageOf(node, s, device, mend), fixes: fixesOf(ctx, node, s, device, mend) });
@@ -116,7 +123,9 @@ function adviceOf(pressure: StatedValue, names: { name: string; key: string }, d
  * word in place of the device word (its value, where the device is written with its key), and the
  * pressure removed with the separator before it (or, first on its line, the one after it). Beside
  * `niv` or `cpap`, the one way `mendOf` finds. A number right after the device is its flow, but after
- * `cpap` its level: naming CPAP keys such a flow (`cannula 2` → `cpap flow 2`). The device is not
+ * `cpap` its level: naming CPAP keys such a flow (`cannula 2` → `cpap flow 2`); and after `venturi`
+ * maybe its FiO2, which any other device would read as a flow: naming the support keys it
+ * (`venturi 0.4` → `niv fio2 0.4`). The device is not
  * renamed where the pressures, then used, would be out of order (PN314, PN315): each is a mistake
  * of its own, and the fix would give the note an error.
  */
@@ -133,7 +142,9 @@ function fixesOf(ctx: TimepointContext, node: SectionLine, pressure: StatedValue
   if (word && (mend === null || mend === 'device') && inOrderOnceNamed(ctx, pressure.line)) {
     const edits: TextEdit[] = [{ range: toRange(device.line, word.span), newText: support }];
     const flow = items[items.indexOf(device.item) + 1];
-    if (support === 'cpap' && flow?.implied === 'device-flow') edits.push({ range: toRange(device.line, { start: flow.span.start, end: flow.span.start }), newText: 'flow ' });
+    // After another device the number is read again: after `cpap` it would be the level, and
+    // only after `venturi` is it an FiO2 (`venturi 0.4` → `niv fio2 0.4`). It keeps its key.
+    if (flow?.implied === 'device-flow' && (support === 'cpap' || flow.keyName === 'fio2')) edits.push({ range: toRange(device.line, { start: flow.span.start, end: flow.span.start }), newText: `${flow.keyName === 'fio2' ? 'fio2' : 'flow'} ` });
     fixes.push({ title: `Change the device to \`${support}\``, edits });
   }
   const at = items.indexOf(pressure.item);
@@ -145,6 +156,58 @@ function fixesOf(ctx: TimepointContext, node: SectionLine, pressure: StatedValue
     fixes.push({ title: `Remove \`${textOf(node, span)}\``, edits: [{ range: toRange(pressure.line, cut), newText: '' }] });
   }
   return fixes;
+}
+
+/**
+ * A CPAP level beside an IPAP or an EPAP (`niv`, the first of them) on an oxygen line that names no
+ * device: the line reads as NIV, which gives no CPAP level.
+ */
+function levelBesideNivMessage(node: SectionLine, level: StatedValue, niv: StatedValue): string {
+  const others = nivItemsOf(node).length > 1 ? 'the IPAP and the EPAP' : `the ${PRESSURE_NAMES[niv.fieldId]!.name}`;
+  return `\`${textOf(node, level.item.span)}\` beside \`${textOf(node, niv.item.span)}\`, with no device named: an IPAP or an EPAP makes the line NIV, which gives an IPAP and an EPAP, not one CPAP level, so the CPAP level is not used (not as the end-expiratory pressure either). If NIV is given, remove the level; if CPAP, remove ${others}. Naming the device (\`niv\` or \`cpap\`) says which.`;
+}
+
+/** The IPAP and EPAP items of a line. */
+function nivItemsOf(node: SectionLine): ItemNode[] {
+  const out: ItemNode[] = [];
+  for (const item of node.items) if (item.field !== null && (item.field.id === 'ipap' || item.field.id === 'epap')) out.push(item);
+  return out;
+}
+
+/**
+ * Two fixes, neither safe unseen: the level removed (the line stays NIV), or the IPAP and EPAP
+ * removed (the level makes it CPAP).
+ */
+function levelBesideNivFixes(node: SectionLine, level: StatedValue): readonly Fix[] {
+  const niv = nivItemsOf(node);
+  return [
+    { title: `Remove \`${textOf(node, level.item.span)}\``, edits: removalEdits(node, [level.item]) },
+    { title: `Remove ${niv.map((i) => `\`${textOf(node, i.span)}\``).join(' and ')}`, edits: removalEdits(node, niv) },
+  ];
+}
+
+/**
+ * The edits that remove `removed` (items of `node`), each run of neighbours as one, with the
+ * separator before the run (or, first on its line, the one after it).
+ */
+function removalEdits(node: SectionLine, removed: readonly ItemNode[]): TextEdit[] {
+  const items = node.items;
+  const edits: TextEdit[] = [];
+  let i = 0;
+  while (i < items.length) {
+    if (!removed.includes(items[i]!)) {
+      i++;
+      continue;
+    }
+    let j = i;
+    while (j + 1 < items.length && removed.includes(items[j + 1]!)) j++;
+    const before = items[i - 1];
+    const after = items[j + 1];
+    const cut = before ? { start: before.span.end, end: items[j]!.span.end } : { start: items[i]!.span.start, end: after ? after.span.start : items[j]!.span.end };
+    edits.push({ range: toRange(node.line, cut), newText: '' });
+    i = j + 1;
+  }
+  return edits;
 }
 
 /**

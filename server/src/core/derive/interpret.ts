@@ -394,11 +394,11 @@ function type2OnDeviceText(g: GasFacts): string {
 }
 
 function hypercapniaNoFio2Text(g: GasFacts): string {
-  return `Hypercapnia (${co2Words(g)}) with ${o2Words(g)}, ${o2Side(g)}, and no FiO2 stated: on supplemental oxygen this would be consistent with type 2 (hypercapnic) respiratory failure; add ${g.c.fio2Need()} to tell.`;
+  return `Consistent with hypercapnia (${co2Words(g)}) with ${o2Words(g)}, ${o2Side(g)}, and no FiO2 stated: on supplemental oxygen this would be consistent with type 2 (hypercapnic) respiratory failure; add ${g.c.fio2Need()} to tell.`;
 }
 
 function hypercapniaOnAirText(g: GasFacts): string {
-  return `Hypercapnia (${co2Words(g)}) without hypoxaemia on air (${o2Words(g)}, ${o2Side(g)}): consistent with ventilatory (hypercapnic) failure; type 2 respiratory failure, as Pneumark reads it, also needs hypoxaemia.`;
+  return `Consistent with hypercapnia (${co2Words(g)}) without hypoxaemia on air (${o2Words(g)}, ${o2Side(g)}), and so with ventilatory (hypercapnic) failure; type 2 respiratory failure, as Pneumark reads it, also needs hypoxaemia.`;
 }
 
 function acidBaseNotReadText(g: GasFacts): string {
@@ -427,12 +427,12 @@ function mechanism(g: GasFacts): Interpretation {
   const paco2 = c.field('paco2');
   if (pio2 && paco2 && !gradient) {
     // Everything is stated, yet no gradient: the PaO2 is above the alveolar PO2, or that comes out negative.
-    return new Reading('hypoxaemia-mechanism', BASIS_MECHANISM_NOT_READ, g, false, 'Mechanism of hypoxaemia not assessed: the FiO2, pressure, PaCO2 and PaO2 stated cannot go together, so there is no A–a gradient (see PN401).');
+    return new Reading('hypoxaemia-mechanism', BASIS_MECHANISM_NOT_READ, g, false, 'Consistent with hypoxaemia, its mechanism not assessed: the FiO2, pressure, PaCO2 and PaO2 stated cannot go together, so there is no A–a gradient (see PN401).');
   }
   if (!pio2 || !gradient || !paco2) {
     // What the PiO2 lacks: the FiO2, or a usable place.
     const need = !paco2 ? 'pco2' : wordList(c.lacking('pio2'));
-    return new Reading('hypoxaemia-mechanism', BASIS_NONE, g, false, `Mechanism of hypoxaemia not assessed: add ${need} to get the A–a gradient.`);
+    return new Reading('hypoxaemia-mechanism', BASIS_NONE, g, false, `Consistent with hypoxaemia, its mechanism not assessed: add ${need} to get the A–a gradient.`);
   }
   const limit = upper?.value ?? AA_UPPER_NORMAL_NO_AGE_MMHG;
   const causes: string[] = [];
@@ -462,11 +462,11 @@ function mechanism(g: GasFacts): Interpretation {
     }
     if (alveolar && lowering.length > 0) {
       const short = lowering.length === 1 ? 'short of its threshold' : 'neither past its own threshold';
-      return new Reading('hypoxaemia-mechanism', BASIS_MECHANISM, g, true, `Hypoxaemia consistent with a low alveolar PO2 (PAO2 ${gas.value(alveolar.value, LOW_PIO2_MMHG)}) from ${wordList(lowering)}, ${short}.${normalGradient}${carried}${caveat}`);
+      return new Reading('hypoxaemia-mechanism', BASIS_MECHANISM, g, true, `Consistent with hypoxaemia from a low alveolar PO2 (PAO2 ${gas.value(alveolar.value, LOW_PIO2_MMHG)}) from ${wordList(lowering)}, ${short}.${normalGradient}${carried}${caveat}`);
     }
-    return new Reading('hypoxaemia-mechanism', BASIS_MECHANISM, g, true, `Hypoxaemia without a low PiO2, hypercapnia or a raised A–a gradient: recheck the inputs.${normalGradient}${carried}${caveat}`);
+    return new Reading('hypoxaemia-mechanism', BASIS_MECHANISM, g, true, `Consistent with hypoxaemia, yet without a low PiO2, hypercapnia or a raised A–a gradient: recheck the inputs.${normalGradient}${carried}${caveat}`);
   }
-  const text = causes.length === 1 ? `Hypoxaemia consistent with ${causes[0]}.` : `Hypoxaemia consistent with a mix of ${wordList(causes)}.`;
+  const text = causes.length === 1 ? `Consistent with hypoxaemia from ${causes[0]}.` : `Consistent with hypoxaemia from a mix of ${wordList(causes)}.`;
   return new Reading('hypoxaemia-mechanism', BASIS_MECHANISM, g, true, `${text}${normalGradient}${carried}${caveat}`);
 }
 

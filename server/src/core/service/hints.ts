@@ -4,7 +4,7 @@
  * whose gas unit is kPa, gas pressures in kPa first: `P/F 23.7 kPa (178) · A–a 3.2 kPa (24), ≤ 2.7`),
  * `ΔP 17 · VT 6.7 mL/kg · Cstat 25` after a vent line with a plateau, `PB 628 mmHg` after a
  * place line with an altitude, `FiO2 ≈ 0.33 (est.)` after a low-flow oxygen line, and a short
- * acid–base reading (`resp. acidosis, acute`). A value that uses an input carried forward from
+ * acid–base reading (`consistent with resp. acidosis, acute`). A value that uses an input carried forward from
  * an earlier timepoint ends with `*`; its tooltip names the carried inputs. A value a finding
  * withholds (P/F where PN401 says the PaO2 cannot be) is named where it would have been:
  * `P/F, A–a withheld (PN401)`, with the reason in the tooltip.
@@ -344,8 +344,10 @@ function disorder(kind: string, direction: string): string {
 }
 
 /**
- * A compact form of an acid–base reading, built from its classification words:
- * `resp. acidosis, acute`, `met. acidosis, high AG + resp. alkalosis`, `mixed acidosis`.
+ * A compact form of an acid–base reading, built from its classification words, saying as the
+ * reading does that the gas is consistent with what it names: `consistent with resp. acidosis,
+ * acute`, `consistent with met. acidosis, high AG + resp. alkalosis`, `normal pH; consistent with
+ * met. acidosis + met. alkalosis`.
  * Null when the reading names no disorder.
  */
 /**
@@ -381,7 +383,7 @@ export function acidBaseLabel(text: string): string | null {
   let label: string | null = null;
   const mixed = /mixed metabolic and respiratory (acidosis|alkalosis)/i.exec(first);
   const single = singleDisorder(first);
-  if (/undetermined/i.test(first)) label = 'acid–base unclear';
+  if (/undetermined/i.test(first)) label = UNCLEAR;
   else if (mixed) label = `mixed ${mixed[1]!.toLowerCase()}${anionGapWords(first)}`;
   else if (single) {
     label = disorder(single[3]!, single[4]!);
@@ -389,7 +391,7 @@ export function acidBaseLabel(text: string): string | null {
     if (single[1]) label += ', compensated';
     label += anionGapWords(first);
     if (/between the acute and chronic/i.test(text)) label += ', acute on chronic?';
-  } else if (/normal acid–base/i.test(first)) label = 'normal pH';
+  } else if (/normal acid–base/i.test(first)) label = NORMAL_PH;
   if (label === null) return null;
   const extra: string[] = [];
   const additional = /also consistent with an added ([^;.]+)/i.exec(text);
@@ -400,5 +402,11 @@ export function acidBaseLabel(text: string): string | null {
     const added = m[2]!.toLowerCase() === 'disorder' ? `${ABBREVIATION[m[1]!.toLowerCase()] ?? m[1]!} disorder?` : `${disorder(m[1]!, m[2]!)}?`;
     if (!extra.some((e) => added.startsWith(e))) extra.push(added);
   }
-  return [label, ...extra].join(' + ');
+  // An interpretation, never a diagnosis stated bare: what the label names is "consistent with"
+  // it, as the tooltip says in full. A normal pH and an unreadable gas name no disorder.
+  if (label === NORMAL_PH || label === UNCLEAR) return extra.length === 0 ? label : `${label}; consistent with ${extra.join(' + ')}`;
+  return `consistent with ${[label, ...extra].join(' + ')}`;
 }
+
+const NORMAL_PH = 'normal pH';
+const UNCLEAR = 'acid–base unclear';

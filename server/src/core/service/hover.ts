@@ -9,7 +9,7 @@
 import type { NoteResult } from '../check-note';
 import type { StatedValue, Timepoint } from '../analysis/model';
 import { displayUnit } from '../analysis/read-value';
-import { deviceWithoutPressure, supportOfDevice } from '../analysis/noninvasive-support';
+import { deviceWithoutPressure, nivPressureBesideLevel, supportOfDevice } from '../analysis/noninvasive-support';
 import { withheldText, type DerivedValue, type NotApplicable, type TimepointDerivation } from '../derive/model';
 import { derivedDef, withheldByReason } from '../derive/registry';
 import { shortAsName } from '../derive/context';
@@ -208,12 +208,16 @@ function usableText(s: StatedValue, field: FieldDef): string | null {
   return 'Not used in calculations: the value is outside what is possible.';
 }
 
-/** An IPAP, an EPAP or a CPAP level beside a device that does not give it (PN318): why it is not used. */
+/** An IPAP, an EPAP or a CPAP level beside a device that does not give it, or a CPAP level beside an IPAP or an EPAP with no device (PN318): why it is not used. */
 function notGivenText(result: NoteResult, s: StatedValue): string | null {
   if (!s.usable || s.section !== 'oxygen') return null;
   const tp = timepointOfLine(result, s.line);
   const device = tp ? deviceWithoutPressure(tp.stated, s) : null;
-  if (device === null) return null;
+  if (device === null) {
+    // No device named: a CPAP level beside an IPAP or an EPAP, which make the line NIV.
+    const niv = tp ? nivPressureBesideLevel(tp.stated, s) : null;
+    return niv === null ? null : `Not used in calculations: with no device named, the ${niv.fieldId === 'ipap' ? 'IPAP' : 'EPAP'} on this line makes it NIV, which gives an IPAP and an EPAP, not one CPAP level (PN318).`;
+  }
   const support = supportOfDevice(device.word);
   const gives = support === null ? 'gives no set airway pressure' : support === 'cpap' ? `gives one pressure, its level, and no ${s.fieldId === 'ipap' ? 'IPAP' : 'EPAP'}` : 'gives an IPAP and an EPAP, not one CPAP level';
   return `Not used in calculations: the device ${code(device.word ?? '')} ${gives} (PN318).`;

@@ -1518,6 +1518,44 @@ function bilevelPairKeys(chunk: Word, chunks: readonly Word[], at: number, items
   return `ipap ${pair[1]}, epap ${pair[2]}`;
 }
 
+/**
+ * The oxygen fractions of the Venturi settings, as a bare percentage: 24 to 60 % (European Lung
+ * White Book, Principles of respiratory therapy, figure 2; BTS 2017, from memory).
+ */
+export const VENTURI_PERCENT = { min: 24, max: 60 } as const;
+
+/**
+ * What the number after `venturi` is. A Venturi mask is set by the oxygen fraction it gives, not by
+ * a flow (its settings give about 24, 28, 31, 35, 40 and 60 % oxygen, each at an oxygen flow of some
+ * 2 to 15 L/min the device names: O'Driscoll BR et al., BTS guideline for oxygen use in adults in
+ * healthcare and emergency settings, Thorax 2017;72 Suppl 1, from memory). So the number is its FiO2 where it
+ * can only be one: a fraction (above 0, up to 1: no Venturi mask runs at 0.4 L/min) or a
+ * percentage (`venturi 40 %`); and a bare number of a setting (24–60, above any flow a Venturi mask
+ * takes), as a percentage, which `venturiSettingIssue` reports. Any other number, and one written in
+ * another unit (`venturi 8 L/min`), is the flow, as after other devices.
+ */
+function venturiNumberKey(number: number, unit: Located | null): 'fio2' | 'flow' {
+  if (unit !== null) return unitsForSpelling(unit.text).some((u) => u.id === '%') ? 'fio2' : 'flow';
+  if (number > 0 && number <= 1) return 'fio2';
+  return number >= VENTURI_PERCENT.min && number <= VENTURI_PERCENT.max ? 'fio2' : 'flow';
+}
+
+/**
+ * A bare number of a Venturi setting after `venturi` (`venturi 28`), read as the FiO2 in %: said
+ * (information), with fixes that write which was meant, the FiO2 read or a flow in L/min.
+ */
+function venturiSettingIssue(device: string, number: string, start: number, end: number): SyntaxIssue {
+  return {
+    check: 'venturi-setting',
+    span: { start, end },
+    message: `\`${number}\` after \`${device}\` is read as the FiO2 it gives, ${number} % (a Venturi mask is set by its oxygen fraction, ${VENTURI_PERCENT.min}–${VENTURI_PERCENT.max} %), not as a flow of ${number} L/min. Write \`fio2 ${number} %\` to say so, or \`${number} L/min\` for a flow.`,
+    fixes: [
+      { title: `Write \`fio2 ${number} %\``, edits: [{ span: { start, end: start }, newText: 'fio2 ' }, { span: { start: end, end }, newText: ' %' }] },
+      { title: `Write \`${number} L/min\``, edits: [{ span: { start: end, end }, newText: ' L/min' }] },
+    ],
+  };
+}
+
 /** `source` is the text of the line (spans and numbers' texts refer to it). */
 function parseItems(section: SectionId, chunks: readonly Word[], start: number, issues: SyntaxIssue[], source: string): readonly ItemNode[] {
   let i = start;
@@ -1571,7 +1609,9 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
           i++;
           const unit = unitAfter(gluedUnit(next, length), chunks, i, section, source);
           i += UNIT_CHUNKS;
-          const keyName = lowerCase(dev.text) === 'cpap' ? 'level' : 'flow';
+          const deviceWord = lowerCase(dev.text);
+          const keyName = deviceWord === 'cpap' ? 'level' : deviceWord === 'venturi' ? venturiNumberKey(number, unit) : 'flow';
+          if (keyName === 'fio2' && unit === null && number > 1) issues.push(venturiSettingIssue(dev.text, source.slice(next.start, next.start + length), next.start, next.start + length));
           items[count++] = numberItem(null, keyName, 'device-flow', fieldFor(section, keyName) ?? null, source, number, next.start + length, comma, unit, next.start);
         }
       }

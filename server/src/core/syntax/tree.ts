@@ -91,7 +91,8 @@ export type SyntaxCheckAlias =
   | 'decimal-comma'
   | 'bad-time'
   | 'stray-text'
-  | 'bad-shorthand';
+  | 'bad-shorthand'
+  | 'venturi-setting';
 
 export interface TimeSpec {
   readonly kind: 'clock' | 'offset' | 'day';
