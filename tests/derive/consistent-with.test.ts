@@ -37,6 +37,7 @@ const EXTRA = [
   '@ day 1 08:00\noxygen cannula 2\nabg 7.40/40/52/24',
   '@ day 1 08:00\noxygen venturi 28\nabg 7.30/62/55/30',
   '@ day 1 08:00\noxygen epap 6, level 8, fio2 0.5\nabg 7.20/70/50/26',
+  '@ day 1 08:00\nvbg pco2 68',
 ].map((text, i) => ({ path: `extra-${i + 1}`, text }));
 const notes = [...fixtureFiles('tests/fixtures', 'samples'), ...EXTRA];
 

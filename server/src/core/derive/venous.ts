@@ -66,7 +66,7 @@ export function readVenous(c: DeriveContext): readonly Interpretation[] {
     const shown = `PvCO2 ${gas.measured(pco2, resolution, VENOUS_PCO2_SCREEN_MMHG)}`;
     const at = sideOf(pco2, VENOUS_PCO2_SCREEN_MMHG, resolution) === 0 ? gas.on(VENOUS_PCO2_SCREEN_MMHG, resolution) : gas.threshold(VENOUS_PCO2_SCREEN_MMHG, pco2);
     if (screen === 'hypercapnia-not-excluded') {
-      parts.push(`${shown}, above ${at}: arterial hypercapnia not ruled out (a venous PCO2 can differ from the arterial one by ${gas.threshold(PCO2_DISAGREEMENT_MMHG)} either way; an arterial gas measures it)`);
+      parts.push(`${shown}, above ${at}: consistent with arterial hypercapnia, not proof of it (a venous PCO2 can differ from the arterial one by ${gas.threshold(PCO2_DISAGREEMENT_MMHG)} either way; an arterial gas measures it)`);
       notable = true;
     } else parts.push(`${shown}, not above ${at}: consistent with no arterial hypercapnia (PaCO2 not above ${gas.threshold(SCREENED_PACO2_MMHG)})`);
   }
