@@ -7,30 +7,23 @@
 //   node tests/bench/compare.mjs [old-core.js] [--new new-core.js] [--notes N] [--rounds N]
 //
 // The old bundle: see tests/bench/same-results.mjs. The new one is built from this tree.
-import { build } from 'esbuild';
 import { rmSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { generateNote } from './generate.mjs';
+import { args, buildCore, oldPath, option } from './two-builds.mjs';
 
 const require = createRequire(import.meta.url);
-const args = process.argv.slice(2);
-const option = (name, fallback) => {
-  const i = args.indexOf(name);
-  return i >= 0 ? Number(args[i + 1]) : fallback;
-};
-const oldPath = args.find((a, i) => !a.startsWith('--') && (i === 0 || !args[i - 1].startsWith('--'))) ?? '/tmp/pn-old-core.js';
 const NOTES = option('--notes', 10000);
 const ROUNDS = option('--rounds', 5);
 
-const root = new URL('../../', import.meta.url).pathname;
 // `--new path`: a bundle made already (the same bundle as both, copied, shows what the order of rounds alone does).
 const newIndex = args.indexOf('--new');
 let newPath = newIndex >= 0 ? args[newIndex + 1] : null;
 if (newPath === null) {
   newPath = join(tmpdir(), `pneumark-compare-${process.pid}.cjs`);
-  await build({ entryPoints: [join(root, 'server/src/core/index.ts')], bundle: true, platform: 'node', format: 'cjs', outfile: newPath, logLevel: 'error' });
+  await buildCore(newPath);
 }
 const builds = { old: require(oldPath), new: require(newPath) };
 if (newIndex < 0) rmSync(newPath, { force: true });

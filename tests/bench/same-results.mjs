@@ -15,26 +15,20 @@
 // the samples, every .pneu under tests/, and randomly mutated copies of them (characters cut,
 // duplicated, swapped or replaced, lines duplicated or dropped; a fixed seed), each under the
 // default settings and a few others (kPa, the full alveolar equation, some checks disabled).
-import { build } from 'esbuild';
 import { readdirSync, readFileSync, rmSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { generateNote } from './generate.mjs';
+import { buildCore, oldPath, option } from './two-builds.mjs';
 
 const require = createRequire(import.meta.url);
-const args = process.argv.slice(2);
-const option = (name, fallback) => {
-  const i = args.indexOf(name);
-  return i >= 0 ? Number(args[i + 1]) : fallback;
-};
-const oldPath = args.find((a, i) => !a.startsWith('--') && (i === 0 || !args[i - 1].startsWith('--'))) ?? '/tmp/pn-old-core.js';
 const NOTES = option('--notes', 10000);
 const MUTANTS = option('--mutants', 3000);
 
 const root = new URL('../../', import.meta.url).pathname;
 const newPath = join(tmpdir(), `pneumark-same-${process.pid}.cjs`);
-await build({ entryPoints: [join(root, 'server/src/core/index.ts')], bundle: true, platform: 'node', format: 'cjs', outfile: newPath, logLevel: 'error' });
+await buildCore(newPath);
 const NEW = require(newPath);
 rmSync(newPath, { force: true });
 const OLD = require(oldPath);
