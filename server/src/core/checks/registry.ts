@@ -21,6 +21,7 @@ import { rateBelowSet, setRateZero } from './rate-order';
 import { amplitudeOutsideHfov } from './oscillation';
 import { peakNearAbsolutePinsp } from './insp-pressure';
 import { fio2OnRoomAirCheck, flowOnRoomAirCheck } from './room-air-flow';
+import { venturiFio2High } from './venturi-fio2';
 import { pressureWithoutSupport } from './pressure-without-support';
 import { bareHbBesideMmolCheck } from './hb-units';
 import { placePressureUnlikeAltitude } from './place-pressure';
@@ -63,6 +64,7 @@ export const CHECKS: readonly CheckDef[] = validateCheckList([
   bareHbBesideMmolCheck,
   placePressureUnlikeAltitude,
   venturiSetting,
+  venturiFio2High,
   pao2AboveAlveolar,
   gasInconsistent,
   tidalVolumeHigh,
