@@ -14,7 +14,7 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { CancellationTokenSource, type Diagnostic, type Hover, type InlayHint, type Position, type TextEdit } from 'vscode-languageserver-protocol';
+import { CancellationTokenSource, type Diagnostic, type Hover, type InlayHint, type Position, type TextEdit, LSPErrorCodes } from 'vscode-languageserver-protocol';
 import { checkNote } from '../../server/src/core/check-note';
 import { formatEdits } from '../../server/src/core/service/format';
 import { lineTable } from '../../server/src/core/service/text-edits';
@@ -23,10 +23,6 @@ import { SUMMARY_REQUEST, TRENDS_REQUEST } from '../../server/src/protocol';
 import { generateNote } from '../bench/generate.mjs';
 import { rng } from '../helpers/seeded';
 import { errorCode, startClient, type LspClient } from './lsp-client';
-
-/** LSP's RequestCancelled and ContentModified. */
-const REQUEST_CANCELLED = -32800;
-const CONTENT_MODIFIED = -32801;
 
 let client: LspClient;
 beforeAll(async () => {
@@ -386,7 +382,7 @@ describe('formatting a big note', () => {
   it('answers ContentModified to range formatting overtaken by a change (its range named lines of a text that is gone)', async () => {
     const edits = client.connection.sendRequest<TextEdit[]>('textDocument/rangeFormatting', { textDocument: { uri }, options: { tabSize: 2, insertSpaces: true }, range: { start: { line: 0, character: 0 }, end: { line: lineCount, character: 0 } } });
     await client.connection.sendNotification('textDocument/didChange', { textDocument: { uri, version: 3 }, contentChanges: [{ range: { start: { line: 0, character: 0 }, end: { line: 0, character: 2 } }, text: '' }] });
-    expect(await errorCode(edits)).toBe(CONTENT_MODIFIED);
+    expect(await errorCode(edits)).toBe(LSPErrorCodes.ContentModified);
   }, 120_000);
 
   it('answers RequestCancelled to formatting the client cancels', async () => {
@@ -395,6 +391,6 @@ describe('formatting a big note', () => {
     // Answered between two steps of the formatting: it has started and is not done.
     await client.connection.sendRequest<Hover | null>('textDocument/hover', { textDocument: { uri: small }, position: { line: 1, character: 10 } });
     source.cancel();
-    expect(await errorCode(edits)).toBe(REQUEST_CANCELLED);
+    expect(await errorCode(edits)).toBe(LSPErrorCodes.RequestCancelled);
   }, 120_000);
 });

@@ -7,7 +7,7 @@
 // of the core.
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { CancellationTokenSource, type DocumentSymbol, type Hover } from 'vscode-languageserver-protocol';
+import { CancellationTokenSource, type DocumentSymbol, type Hover, LSPErrorCodes } from 'vscode-languageserver-protocol';
 import { checkNote } from '../../server/src/core/check-note';
 import { convertNoteUnits, documentSymbols, inlayHints } from '../../server/src/core/service';
 import { trendPoints } from '../../server/src/core/trends';
@@ -16,9 +16,6 @@ import { toDocumentSymbol, toInlayHint } from '../../server/src/server/translate
 import { CONVERT_UNITS_REQUEST, TRENDS_REQUEST } from '../../server/src/protocol';
 import { generateNote } from '../bench/generate.mjs';
 import { errorCode, startClient, type LspClient } from './lsp-client';
-
-/** LSP's RequestCancelled. */
-const REQUEST_CANCELLED = -32800;
 
 let client: LspClient;
 const path = (name: string) => join(process.cwd(), name);
@@ -74,7 +71,7 @@ describe('whole-note requests about a big note', () => {
     // Answered between two slices of the outline: the outline has started and is not done.
     await hover();
     source.cancel();
-    expect(await errorCode(outline)).toBe(REQUEST_CANCELLED);
+    expect(await errorCode(outline)).toBe(LSPErrorCodes.RequestCancelled);
   }, 120_000);
 
   it('answer a request cancelled while it waits for its note to be read at once, before the note is read', async () => {
@@ -87,7 +84,7 @@ describe('whole-note requests about a big note', () => {
     // The hover is in: the server answers requests in the order they come.
     await hover();
     source.cancel();
-    expect(await waiting).toBe(REQUEST_CANCELLED);
+    expect(await waiting).toBe(LSPErrorCodes.RequestCancelled);
     await read;
     expect(order).toEqual(['cancelled', 'read']);
     await client.connection.sendNotification('textDocument/didClose', { textDocument: { uri: other } });
