@@ -131,19 +131,19 @@ const CPAP_FIRST: readonly ['cpap_level', 'epap'] = ['cpap_level', 'epap'];
 
 /**
  * The oxygen-line pressure in force taken as the end-expiratory pressure where no PEEP is (the
- * oxygenation band, driving pressure, the compliances, PN314): the one the device gives, the CPAP
- * level under `cpap` and else the EPAP first; none that the device does not give (PN318), but one
- * of 0 (no pressure, which any device agrees with), nor, with no device named, a CPAP level beside
- * an IPAP, which makes the line NIV (PN318). Null when none is.
+ * oxygenation band, driving pressure, the compliances, PN314): one of the support the line gives by
+ * the one rule (`noninvasiveSupport`: the device named, else the pressures written), the CPAP level
+ * under CPAP and the EPAP under NIV; none that the support does not give (PN318: `oxygen mask, epap
+ * 6`, `oxygen ipap 12, level 8`), but one of 0 (no pressure, which any device agrees with). Null
+ * when none is.
  */
 export function endExpiratoryField(device: string | null, values: NumbersInForce): 'epap' | 'cpap_level' | null {
-  const order = device !== null && supportOfDevice(device) === 'cpap' ? CPAP_FIRST : NIV_FIRST;
+  const support = noninvasiveSupport(device, { has: (id) => values.numberOf(id) !== null });
+  const order = support === 'cpap' ? CPAP_FIRST : NIV_FIRST;
   for (let i = 0; i < order.length; i++) {
     const id = order[i]!;
     const value = values.numberOf(id);
-    // With no device, an IPAP makes the line NIV (`noninvasiveSupport`), which gives no CPAP level
-    // (PN318: `oxygen ipap 12, level 8`); an EPAP, which would too, is taken before the level.
-    if (value !== null && (value === 0 || givesPressure(device, id)) && (device !== null || id !== 'cpap_level' || value === 0 || values.numberOf('ipap') === null)) return id;
+    if (value !== null && (value === 0 || supportOfPressure(id) === support)) return id;
   }
   return null;
 }
