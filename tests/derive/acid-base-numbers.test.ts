@@ -8,21 +8,29 @@
 // < 0.4, 0.4–0.8, 0.8–2, > 2 (Rastegar A, JASN 2007;18:2429–2431, from memory).
 import { describe, expect, it } from 'vitest';
 import { acidBaseLabel } from '../../server/src/core/service/hints';
+import type { AcidBaseFinding } from '../../server/src/core/derive/model';
 import { derivation, derived, readings } from './helpers';
 
 const reading = (gas: string) => readings(`@ 08:00\noxygen room air\n${gas}`)['acid-base'];
 
+/** The acid–base reading of a gas: its text, and what it decided (the inlay label is made from that). */
+function acidBaseReading(gas: string): { text: string; acidBase: AcidBaseFinding } {
+  const r = derivation(`@ 08:00\noxygen room air\n${gas}`).interpretations.find((i) => i.topic === 'acid-base');
+  if (!r?.acidBase) throw new Error(`no acid–base finding for ${gas}`);
+  return { text: r.text, acidBase: r.acidBase };
+}
+
 describe('respiratory disorders name the HCO3 ranges they were told apart by', () => {
   it('between the ranges: PaCO2 70, acute 24 + 3 ± 2 = 25–29, chronic 24 + 10.5…15 ± 2 = 32.5–41 mmol/L, HCO3 31.5', () => {
-    const text = reading('abg 7.27/70/60/31.5');
+    const { text, acidBase } = acidBaseReading('abg 7.27/70/60/31.5');
     expect(text).toBe('Consistent with respiratory acidosis (pH 7.27, PaCO2 70 mmHg, HCO3 31.5 mmol/L); HCO3 31.5 mmol/L is between the acute and chronic ranges (25–29 mmol/L if acute, 33–41 mmol/L if chronic): evolving, or acute on chronic.');
-    expect(acidBaseLabel(text)).toBe('consistent with resp. acidosis, acute on chronic?');
+    expect(acidBaseLabel(acidBase)).toBe('consistent with resp. acidosis, acute on chronic?');
   });
 
   it('in both ranges: PaCO2 28, acute 24 − 2.4 ± 2 = 19.6–23.6, chronic 24 − 4.8…6 ± 2 = 16–21.2 mmol/L, HCO3 21 — says they overlap, not that the change is too small', () => {
-    const text = reading('abg 7.49/28/45/21');
+    const { text, acidBase } = acidBaseReading('abg 7.49/28/45/21');
     expect(text).toBe('Consistent with respiratory alkalosis (pH 7.49, PaCO2 28 mmHg, HCO3 21.0 mmol/L); HCO3 21.0 mmol/L is within both the acute (20–24 mmol/L) and the chronic (16.0–21.2 mmol/L) range, which overlap here, so acute cannot be told from chronic.');
-    expect(acidBaseLabel(text)).toBe('consistent with resp. alkalosis');
+    expect(acidBaseLabel(acidBase)).toBe('consistent with resp. alkalosis');
   });
 });
 
@@ -55,9 +63,9 @@ describe('the expected HCO3 formula, with its numbers put in, gives the range (N
 
 describe('the anion gap and the delta ratio are named where they shape the reading', () => {
   it('a low albumin turns a normal gap into a high one: AG 140 − (112 + 10) = 18, corrected 18 + 2.5 × (4.0 − 2.0) = 23 mmol/L; delta ratio (23 − 12) ÷ (24 − 10) = 0.79', () => {
-    const text = reading('abg 7.25/23/96/9.8\nlabs na 140, cl 112, hco3 10, albumin 2.0');
+    const { text, acidBase } = acidBaseReading('abg 7.25/23/96/9.8\nlabs na 140, cl 112, hco3 10, albumin 2.0');
     expect(text).toBe('Consistent with metabolic acidosis with high and normal anion-gap components (pH 7.25, PaCO2 23 mmHg, HCO3 9.8 mmol/L; anion gap 23 mmol/L corrected for albumin, delta ratio 0.79), with the expected respiratory response (PaCO2 within the expected 21–25 mmHg).');
-    expect(acidBaseLabel(text)).toBe('consistent with met. acidosis, mixed AG');
+    expect(acidBaseLabel(acidBase)).toBe('consistent with met. acidosis, mixed AG');
   });
 
   it('without albumin the same gap is 18 mmol/L and the delta ratio (18 − 12) ÷ 14 = 0.43', () => {
@@ -66,27 +74,27 @@ describe('the anion gap and the delta ratio are named where they shape the readi
 
   it('a high gap beside a normal pH, PaCO2 and HCO3 names the gap and the HCO3 that has not fallen', () => {
     // AG 138 − (100 + 24.4) = 13.6, corrected 13.6 + 2.5 × 2 = 18.6 mmol/L; HCO3 24.4 is not below 24.
-    const text = reading('abg 7.36/44/90/24.4\nlabs na 138, cl 100, albumin 2.0');
+    const { text, acidBase } = acidBaseReading('abg 7.36/44/90/24.4\nlabs na 138, cl 100, albumin 2.0');
     expect(text).toBe('Consistent with normal acid–base balance by pH, PaCO2 and HCO3 (pH 7.36, PaCO2 44 mmHg, HCO3 24.4 mmol/L); also consistent with an added metabolic acidosis and metabolic alkalosis (anion gap 19 mmol/L corrected for albumin, above 12 mmol/L, with an HCO3 that has not fallen below 24 mmol/L).');
-    expect(acidBaseLabel(text)).toBe('normal pH; consistent with met. acidosis + met. alkalosis');
+    expect(acidBaseLabel(acidBase)).toBe('normal pH; consistent with met. acidosis + met. alkalosis');
   });
 
   it('a high gap with the laboratory bicarbonate not below 24 names that bicarbonate, not the gas HCO3 below 24 it shows beside it', () => {
     // AG 140 − (100 + 24) = 16 mmol/L with the serum bicarbonate, which the gap takes; the gas HCO3 is
     // 22.1 (pH 7.38, PaCO2 38: 0.0307 × 38 × 10^1.28 ≈ 22.2, Henderson–Hasselbalch). A high gap with
     // no fall in bicarbonate: delta ratio above 2 (Rastegar 2007, from memory).
-    const text = reading('abg 7.38/38/90/22.1\nlabs na 140, cl 100, hco3 24');
+    const { text, acidBase } = acidBaseReading('abg 7.38/38/90/22.1\nlabs na 140, cl 100, hco3 24');
     expect(text).toBe('Consistent with normal acid–base balance by pH, PaCO2 and HCO3 (pH 7.38, PaCO2 38 mmHg, HCO3 22.1 mmol/L); also consistent with an added metabolic acidosis and metabolic alkalosis (anion gap 16 mmol/L, above 12 mmol/L, with a serum HCO3 of 24.0 mmol/L, which has not fallen below 24 mmol/L).');
-    expect(acidBaseLabel(text)).toBe('normal pH; consistent with met. acidosis + met. alkalosis');
+    expect(acidBaseLabel(acidBase)).toBe('normal pH; consistent with met. acidosis + met. alkalosis');
   });
 
   it('a mixed acidosis names the anion gap of its metabolic part, as a metabolic acidosis does', () => {
     // AG 140 − (95 + 18) = 27 mmol/L, above 12 (common practice, no source); delta ratio (27 − 12) ÷
     // (24 − 18) = 2.50 (Rastegar 2007, from memory), its HCO3 above what the gap explains being the
     // respiratory acidosis's. pH 7.10 fits (0.0307 × 60 × 10^1.0 ≈ 18.4, Henderson–Hasselbalch).
-    const text = reading('abg 7.10/60/90/18\nlabs na 140, cl 95');
+    const { text, acidBase } = acidBaseReading('abg 7.10/60/90/18\nlabs na 140, cl 95');
     expect(text).toBe('Consistent with a mixed metabolic and respiratory acidosis, the metabolic part with a high anion gap (pH 7.10; PaCO2 60 mmHg above 45 mmHg and HCO3 18.0 mmol/L below 22 mmol/L; anion gap 27 mmol/L, delta ratio 2.50).');
-    expect(acidBaseLabel(text)).toBe('consistent with mixed acidosis, high AG');
+    expect(acidBaseLabel(acidBase)).toBe('consistent with mixed acidosis, high AG');
     // With a normal gap (140 − (110 + 18) = 12), the gap is named without a delta ratio.
     expect(reading('abg 7.10/60/90/18\nlabs na 140, cl 110')).toBe('Consistent with a mixed metabolic and respiratory acidosis, the metabolic part with a normal anion gap (pH 7.10; PaCO2 60 mmHg above 45 mmHg and HCO3 18.0 mmol/L below 22 mmol/L; anion gap 12 mmol/L).');
   });
@@ -110,9 +118,9 @@ describe('every acid–base reading names pH, PaCO2 and HCO3 with their units', 
 describe('a value on the end of a range or on a limit on paper is on it here, whatever floating point makes of the sum', () => {
   it('HCO3 29.7 at PaCO2 62 is on the low end of the chronic range, 24 + 3.5 × 2.2 − 2 = 29.7 mmol/L (Narins & Emmett 1980; Adrogué & Madias 2010, from memory), so within it', () => {
     // 24 + 3.5 × 2.2 − 2 is 29.700000000000003 in floating point; pH 7.29 fits (0.0307 × 62 × 10^1.19 ≈ 29.5).
-    const text = reading('abg 7.29/62/58/29.7');
+    const { text, acidBase } = acidBaseReading('abg 7.29/62/58/29.7');
     expect(text).toBe('Consistent with chronic respiratory acidosis (pH 7.29, PaCO2 62 mmHg, HCO3 29.7 mmol/L), with HCO3 within the 29.7–37.0 mmol/L expected if chronic (24–28 mmol/L if acute).');
-    expect(acidBaseLabel(text)).toBe('consistent with resp. acidosis, chronic');
+    expect(acidBaseLabel(acidBase)).toBe('consistent with resp. acidosis, chronic');
   });
 
   it('an anion gap of 135 − (100.1 + 22.9) = 12 mmol/L is on the upper normal of 12 (common practice, no source), not above it', () => {

@@ -53,12 +53,14 @@ describe('the acid–base reading without a sodium and a chloride', () => {
 describe('readings phrased when read', () => {
   const note = ['@ 08:00', 'vent mode VC, vt 420 mL, rate 18, peep 10, fio2 0.6', '@ 09:00', 'abg 7.36/44/90/24.4'].join('\n');
 
-  it('write their text into JSON as a field, in the order topic, text, basis, line, notable', () => {
+  it('write their text into JSON as a field, in the order topic, text, basis, line, notable, acidBase', () => {
     const list = checkNote(note).analysis.derivation(1).interpretations;
     const json = JSON.parse(JSON.stringify(list)) as Record<string, unknown>[];
-    expect(json.map((r) => Object.keys(r))).toEqual(list.map(() => ['topic', 'text', 'basis', 'line', 'notable']));
+    expect(json.map((r) => Object.keys(r))).toEqual(list.map(() => ['topic', 'text', 'basis', 'line', 'notable', 'acidBase']));
     expect(json.map((r) => r.text)).toEqual(list.map((r) => r.text));
     expect(json.map((r) => r.topic)).toEqual(['oxygenation', 'oxygenation-band', 'ventilation', 'acid-base']);
+    // The acid–base reading's finding goes with it (7.36/44/24.4: normal by the three values); the others have none.
+    expect(json.map((r) => r.acidBase)).toEqual([null, null, null, { primary: 'normal', phase: null, fullyCompensated: false, anionGap: null, suspected: null, added: [] }]);
   });
 
   it('give one text however often and in whatever order they are read', () => {

@@ -2,6 +2,7 @@
 import { describe, expect, it } from 'vitest';
 import { checkNote } from '../../server/src/core/check-note';
 import { acidBaseLabel, CAUTION, HINT_CATEGORIES, inlayHints, type HintCategory } from '../../server/src/core/service';
+import type { AcidBaseFinding } from '../../server/src/core/derive/model';
 import { note } from './cursor';
 
 const ALL = { categories: new Set<HintCategory>(HINT_CATEGORIES) };
@@ -115,30 +116,44 @@ describe('which hints are given', () => {
   });
 });
 
+/** What an acid–base reading decided: one disorder, as expected, unless `over` says otherwise. */
+function finding(over: Partial<AcidBaseFinding>): AcidBaseFinding {
+  return { primary: 'respiratory-acidosis', phase: null, fullyCompensated: false, anionGap: null, suspected: null, added: [], ...over };
+}
+
 describe('acidBaseLabel', () => {
-  it('writes a compact form from the classification words', () => {
-    expect(acidBaseLabel('Consistent with acute respiratory acidosis.')).toBe('consistent with resp. acidosis, acute');
-    expect(acidBaseLabel('Consistent with acute respiratory acidosis; also consistent with an added metabolic acidosis.')).toBe('consistent with resp. acidosis, acute + met. acidosis');
-    expect(acidBaseLabel('Consistent with metabolic acidosis with a high anion gap; with the expected respiratory response (PaCO2 30–34 mmHg).')).toBe('consistent with met. acidosis, high AG');
-    expect(acidBaseLabel('Consistent with a fully compensated chronic respiratory acidosis.')).toBe('consistent with resp. acidosis, chronic, compensated');
-    expect(acidBaseLabel('Consistent with respiratory acidosis; between the acute and chronic ranges (evolving, or acute on chronic).')).toBe('consistent with resp. acidosis, acute on chronic?');
-    expect(acidBaseLabel('Consistent with metabolic acidosis; PaCO2 48 mmHg is above the expected 30–34 mmHg: consistent with an added respiratory acidosis.')).toBe('consistent with met. acidosis + resp. acidosis?');
-    expect(acidBaseLabel('Consistent with a mixed metabolic and respiratory acidosis.')).toBe('consistent with mixed acidosis');
-    expect(acidBaseLabel('Acid–base reading undetermined: the pH does not follow the PaCO2 and HCO3.')).toBe('acid–base unclear');
-    expect(acidBaseLabel('Consistent with normal acid–base balance; also consistent with an added metabolic acidosis and metabolic alkalosis.')).toBe('normal pH; consistent with met. acidosis + met. alkalosis');
-    expect(acidBaseLabel('Nothing to say here.')).toBeNull();
+  it('writes a compact form from what the reading decided', () => {
+    expect(acidBaseLabel(finding({ phase: 'acute' }))).toBe('consistent with resp. acidosis, acute');
+    expect(acidBaseLabel(finding({ phase: 'acute', added: ['metabolic-acidosis'] }))).toBe('consistent with resp. acidosis, acute + met. acidosis');
+    expect(acidBaseLabel(finding({ primary: 'metabolic-acidosis', anionGap: 'high-anion-gap' }))).toBe('consistent with met. acidosis, high AG');
+    expect(acidBaseLabel(finding({ phase: 'chronic', fullyCompensated: true }))).toBe('consistent with resp. acidosis, chronic, compensated');
+    expect(acidBaseLabel(finding({ phase: 'intermediate' }))).toBe('consistent with resp. acidosis, acute on chronic?');
+    expect(acidBaseLabel(finding({ phase: 'acute-or-chronic' }))).toBe('consistent with resp. acidosis');
+    expect(acidBaseLabel(finding({ primary: 'metabolic-acidosis', suspected: 'respiratory-acidosis' }))).toBe('consistent with met. acidosis + resp. acidosis?');
+    expect(acidBaseLabel(finding({ primary: 'metabolic-acidosis', anionGap: 'high-anion-gap', added: ['metabolic-alkalosis'], suspected: 'respiratory-alkalosis' }))).toBe('consistent with met. acidosis, high AG + met. alkalosis + resp. alkalosis?');
+    expect(acidBaseLabel(finding({ suspected: 'metabolic-disorder' }))).toBe('consistent with resp. acidosis + met. disorder?');
+    expect(acidBaseLabel(finding({ primary: 'mixed-acidosis' }))).toBe('consistent with mixed acidosis');
+    expect(acidBaseLabel(finding({ primary: 'mixed-acidosis', anionGap: 'mixed-anion-gap' }))).toBe('consistent with mixed acidosis, mixed AG');
+    expect(acidBaseLabel(finding({ primary: 'mixed-alkalosis', added: ['metabolic-acidosis'] }))).toBe('consistent with mixed alkalosis + met. acidosis');
+    expect(acidBaseLabel(finding({ primary: 'undetermined' }))).toBe('acid–base unclear');
+    expect(acidBaseLabel(finding({ primary: 'undetermined', added: ['metabolic-acidosis'] }))).toBe('acid–base unclear; consistent with met. acidosis');
+    expect(acidBaseLabel(finding({ primary: 'normal' }))).toBe('normal pH');
+    expect(acidBaseLabel(finding({ primary: 'normal', added: ['metabolic-acidosis', 'metabolic-alkalosis'] }))).toBe('normal pH; consistent with met. acidosis + met. alkalosis');
+    // A gas whose pH, PaCO2 and HCO3 do not fit together (PN402) is not read: no label.
+    expect(acidBaseLabel(finding({ primary: 'not-read' }))).toBeNull();
   });
 
   // Every interpretation says "consistent with" (project rule); the inlay label is one too.
   it('says "consistent with" before any disorder it names, and names none bare', () => {
-    for (const text of [
-      'Consistent with acute respiratory acidosis.',
-      'Consistent with metabolic alkalosis.',
-      'Consistent with a mixed metabolic and respiratory alkalosis.',
-      'Consistent with normal acid–base balance; also consistent with an added metabolic acidosis.',
+    for (const f of [
+      finding({ phase: 'acute' }),
+      finding({ primary: 'metabolic-alkalosis' }),
+      finding({ primary: 'mixed-alkalosis' }),
+      finding({ primary: 'normal', added: ['metabolic-acidosis'] }),
+      finding({ primary: 'undetermined', suspected: 'metabolic-disorder' }),
     ]) {
-      const label = acidBaseLabel(text)!;
-      const at = label.search(/acidosis|alkalosis/);
+      const label = acidBaseLabel(f)!;
+      const at = label.search(/acidosis|alkalosis|disorder/);
       expect(at, label).toBeGreaterThan(0);
       expect(label.slice(0, at), label).toContain('consistent with ');
     }

@@ -4,7 +4,7 @@
  * settings (hypoxaemia PaO2 < 60 mmHg and hypercapnia PaCO2 > 50 mmHg by default, common
  * practice). Grades and cut-offs not taken from settings are named below with their source.
  */
-import { ANION_GAP_UPPER_NORMAL_MMOL_L, BERLIN_BAND_SEVERITY, HCO3_CENTRE_MMOL_L, HCO3_NORMAL_MMOL_L, PACO2_NORMAL_MMHG, PH_NORMAL, berlinOxygenationBand, inspiredPo2Humidified, type AcidBaseClassification, type AcidBaseDisorder, type BerlinOxygenationBand } from '../physiology';
+import { ANION_GAP_UPPER_NORMAL_MMOL_L, BERLIN_BAND_SEVERITY, HCO3_CENTRE_MMOL_L, HCO3_NORMAL_MMOL_L, PACO2_NORMAL_MMHG, PH_NORMAL, berlinOxygenationBand, inspiredPo2Humidified, type AcidBaseClassification, type AcidBaseDisorder, type BerlinOxygenationBand, type MetabolicAcidosisKind, type PrimaryAcidBaseFinding } from '../physiology';
 import { sideOf } from '../physiology/numeric';
 import type { Settings } from '../settings';
 import { formatAgainst, formatNumber, formatShort, rangeAgainst, wordList, writtenDecimals } from '../util/format';
@@ -16,7 +16,7 @@ import { readVenous } from './venous';
 import { allowanceAt, isAboveAlveolar } from './gas-exchange';
 import { SEA_LEVEL_MMHG } from './atmosphere';
 import type { DeriveContext, Term } from './context';
-import type { DerivedValue, Interpretation, InterpretationTopic } from './model';
+import type { AcidBaseFinding, DerivedValue, Interpretation, InterpretationTopic } from './model';
 import { NONE } from '../util/lists';
 import { fieldById } from '../fields/registry';
 import type { SectionId } from '../fields/sections';
@@ -62,16 +62,18 @@ class Reading implements Interpretation {
   readonly basis: readonly string[];
   readonly line: number | null;
   readonly notable: boolean;
+  readonly acidBase: AcidBaseFinding | null;
   // ES private fields: not own properties, so comparing two readings looks at what they say.
   #gas: GasFacts | null;
   /** The text, or until it is first read, how to phrase it. */
   #text: Phrase | string;
 
-  constructor(topic: InterpretationTopic, basis: readonly string[], gas: GasFacts, notable: boolean, phrase: Phrase | string) {
+  constructor(topic: InterpretationTopic, basis: readonly string[], gas: GasFacts, notable: boolean, phrase: Phrase | string, acidBase: AcidBaseFinding | null = null) {
     this.topic = topic;
     this.basis = basis;
     this.line = gas.line;
     this.notable = notable;
+    this.acidBase = acidBase;
     this.#gas = typeof phrase === 'string' ? null : gas;
     this.#text = phrase;
   }
@@ -87,7 +89,7 @@ class Reading implements Interpretation {
 
   /** As JSON, the text is written as a field was (a getter is not an own property). */
   toJSON(): Interpretation {
-    return { topic: this.topic, text: this.text, basis: this.basis, line: this.line, notable: this.notable };
+    return { topic: this.topic, text: this.text, basis: this.basis, line: this.line, notable: this.notable, acidBase: this.acidBase };
   }
 }
 
@@ -138,6 +140,8 @@ class GasFacts {
   /** The band's PEEP is noninvasive (EPAP on NIV, CPAP on an oxygen line): the definition names the 200–300 mmHg band only there. */
   noninvasive = false;
   cls: AcidBaseClassification | null = null;
+  /** Set with `cls`: what the acid–base reading decides from it, which its text says. */
+  acidBase: ReadFinding | null = null;
 
   constructor(readonly c: DeriveContext, readonly settings: Settings) {
     const pao2 = (this.pao2 = c.field('pao2', 'PaO2'));
@@ -199,8 +203,11 @@ export function interpret(c: DeriveContext, settings: Settings): readonly Interp
   readRespiratoryFailure(g, out);
   if (g.hypoxaemic) out.push(mechanism(g));
   const cls = (g.cls = classification(c));
-  if (cls && !cls.consistency.consistent) out.push(new Reading('acid-base', BASIS_ACID_BASE, g, false, acidBaseNotReadText));
-  else if (cls) out.push(new Reading('acid-base', BASIS_ACID_BASE, g, cls.primary !== 'normal' || cls.additional.length > 0, acidBaseReadingText));
+  if (cls && !cls.consistency.consistent) out.push(new Reading('acid-base', BASIS_ACID_BASE, g, false, acidBaseNotReadText, NOT_READ_FINDING));
+  else if (cls) {
+    const finding = (g.acidBase = acidBaseFinding(cls));
+    out.push(new Reading('acid-base', BASIS_ACID_BASE, g, cls.primary !== 'normal' || cls.additional.length > 0, acidBaseReadingText, finding));
+  }
   return out;
 }
 
@@ -415,7 +422,7 @@ function acidBaseReadingText(g: GasFacts): string {
   const hco3 = c.number('hco3') ?? NaN;
   // The anion gap takes the laboratory's bicarbonate where one is stated (derive/acid-base.ts).
   const gapSerumHco3 = g.cls!.anionGap !== null ? c.number('hco3_serum') : null;
-  return acidBaseText(g.cls!, g.gas, { ph, paco2: g.paco2?.value ?? NaN, hco3, hypercapniaAboveMmhg: settings.hypercapniaAboveMmhg, co2Resolution: g.co2Resolution, gapCorrected, gapSerumHco3 });
+  return acidBaseText(g.cls!, g.acidBase!, g.gas, { ph, paco2: g.paco2?.value ?? NaN, hco3, hypercapniaAboveMmhg: settings.hypercapniaAboveMmhg, co2Resolution: g.co2Resolution, gapCorrected, gapSerumHco3 });
 }
 
 /** The mechanism of hypoxaemia (a hypoxaemic gas only, so phrased at once). */
@@ -527,19 +534,62 @@ const NORMAL_LIMITS = { ph: [PH_NORMAL.low, PH_NORMAL.high], paco2: [PACO2_NORMA
 const PH_DECIMALS = 2;
 const HCO3_DECIMALS = 1;
 
+/** The finding of a gas that is read: its pH, PaCO2 and HCO3 fit together. */
+type ReadFinding = AcidBaseFinding & { readonly primary: PrimaryAcidBaseFinding };
+
+/** The finding of a gas whose pH, PaCO2 and HCO3 do not fit together (PN402): nothing is read. */
+const NOT_READ_FINDING: AcidBaseFinding = Object.freeze({ primary: 'not-read', phase: null, fullyCompensated: false, anionGap: null, suspected: null, added: NONE });
+/** The finding of most gases: normal, nothing added (shared, as nothing is made for it). */
+const NORMAL_FINDING: ReadFinding = Object.freeze({ primary: 'normal', phase: null, fullyCompensated: false, anionGap: null, suspected: null, added: NONE });
+
+/**
+ * What the acid–base reading decides from the classification of a gas whose numbers fit together:
+ * the disorder it names first, its timing and compensation, the anion gap of its metabolic
+ * acidosis, the disorder a response outside its expected range points to, and the disorders the
+ * anion gap adds besides. `acidBaseText` says in words what this decides, and nothing else does.
+ */
+function acidBaseFinding(cls: AcidBaseClassification): ReadFinding {
+  const primary = cls.primary;
+  const additional = cls.additional;
+  if (primary === 'normal' && additional.length === 0) return NORMAL_FINDING;
+  const exp = cls.expected;
+  let suspected: AcidBaseFinding['suspected'] = null;
+  if (exp?.kind === 'respiratory-response') {
+    // A PaCO2 outside the range expected for a metabolic primary: an added respiratory disorder.
+    if (cls.compensation !== 'appropriate') suspected = additional.includes('respiratory-acidosis') ? 'respiratory-acidosis' : additional.includes('respiratory-alkalosis') ? 'respiratory-alkalosis' : null;
+  } else if (exp?.kind === 'metabolic-response' && cls.compensation !== 'appropriate' && cls.compensation !== 'not-applicable') {
+    // An HCO3 outside both ranges expected for a respiratory primary: an added metabolic disorder.
+    suspected = additional.find((d) => d === 'metabolic-acidosis' || d === 'metabolic-alkalosis') ?? 'metabolic-disorder';
+  }
+  // Most gases add no disorder: no list is made then, and an empty one is the shared one.
+  const kept = additional.length === 0 ? NONE : additional.filter((d) => d !== primary && d !== suspected);
+  const added: readonly AcidBaseDisorder[] = kept.length === 0 ? NONE : kept;
+  // The anion gap is named with the metabolic acidosis of the primary (a metabolic acidosis added besides has its own reasons).
+  const anionGap = primary === 'metabolic-acidosis' || primary === 'mixed-acidosis' ? cls.anionGap?.metabolicAcidosisKind ?? null : null;
+  return { primary, phase: cls.respiratoryChronicity, fullyCompensated: cls.fullyCompensated, anionGap, suspected, added };
+}
+
+/** How the reading names the anion gap of the metabolic acidosis of its primary. */
+const ANION_GAP_WORDS: Readonly<Record<MetabolicAcidosisKind, string>> = {
+  'high-anion-gap': ' with a high anion gap',
+  'normal-anion-gap': ' with a normal anion gap',
+  'mixed-anion-gap': ' with high and normal anion-gap components',
+};
+
 /**
  * The acid–base reading: the disorder the gas is consistent with, then the gas's own numbers with
  * their units, then what the disorder rests on (the expected response and its range, the anion
- * gap and delta ratio), each with its number. It begins "Consistent with …" (the inlay hint's short
- * label is read from that beginning, up to the first semicolon: service/hints.ts acidBaseLabel).
+ * gap and delta ratio), each with its number. It begins "Consistent with …". It says in words
+ * what `finding` decides (the inlay hint's short label is made from that finding, not from these
+ * words: service/hints.ts acidBaseLabel); the classification gives the numbers.
  */
-function acidBaseText(cls: AcidBaseClassification, gas: GasWords, basis: AcidBaseBasis): string {
+function acidBaseText(cls: AcidBaseClassification, finding: ReadFinding, gas: GasWords, basis: AcidBaseBasis): string {
   // The text's parts, separated by `; ` (built as one string: no list to join).
   let text: string;
   const { ph, paco2, hco3 } = basis;
   const gap = cls.anionGap;
-  const gapKind = gap?.metabolicAcidosisKind;
-  const gapWords = gapKind === 'high-anion-gap' ? ' with a high anion gap' : gapKind === 'normal-anion-gap' ? ' with a normal anion gap' : gapKind === 'mixed-anion-gap' ? ' with high and normal anion-gap components' : '';
+  const gapKind = finding.anionGap;
+  const gapWords = gapKind === null ? '' : ANION_GAP_WORDS[gapKind];
   const limits = NORMAL_LIMITS;
   const phShown = `pH ${formatAgainst(ph, PH_DECIMALS, limits.ph[0], limits.ph[1])}`;
   const paco2Shown = `PaCO2 ${gas.measured(paco2, basis.co2Resolution, limits.paco2[0], limits.paco2[1], basis.hypercapniaAboveMmhg)}`;
@@ -548,57 +598,53 @@ function acidBaseText(cls: AcidBaseClassification, gas: GasWords, basis: AcidBas
   // The anion gap as the reading names it: `anion gap 26 mmol/L`, `anion gap 23 mmol/L corrected for albumin`.
   const gapShown = gap ? `anion gap ${formatAgainst(gap.valueMmolL, 0, ANION_GAP_UPPER_NORMAL_MMOL_L)} mmol/L${basis.gapCorrected ? ' corrected for albumin' : ''}` : '';
   const ratioShown = gap?.deltaRatio !== null && gap?.deltaRatio !== undefined ? `delta ratio ${formatAgainst(gap.deltaRatio, 2, 0.4, 0.8, 2)}` : '';
-  switch (cls.primary) {
+  // Where the anion gap names the kind of a metabolic acidosis: the gap, and the delta ratio unless the gap is normal.
+  const gapDetail = gapKind !== null ? `; ${[gapShown, gapKind === 'normal-anion-gap' ? '' : ratioShown].filter(Boolean).join(', ')}` : '';
+  const primary = finding.primary;
+  switch (primary) {
     // With a disorder the anion gap shows, the balance is normal only by these three.
-    case 'normal': text = `Consistent with normal acid–base balance${cls.additional.length > 0 ? ' by pH, PaCO2 and HCO3' : ''} (${numbers})`; break;
+    case 'normal': text = `Consistent with normal acid–base balance${finding.added.length > 0 ? ' by pH, PaCO2 and HCO3' : ''} (${numbers})`; break;
     case 'undetermined': text = `Acid–base reading undetermined: the pH does not follow the PaCO2 and HCO3 (${numbers})`; break;
     case 'mixed-acidosis':
     case 'mixed-alkalosis': {
-      const acid = cls.primary === 'mixed-acidosis';
+      const acid = primary === 'mixed-acidosis';
       // Both components beyond their reference ranges, each named with the limit it is beyond.
       const co2Limit = acid ? limits.paco2[1] : limits.paco2[0];
       const hco3Limit = acid ? limits.hco3[0] : limits.hco3[1];
       // The metabolic part of a mixed acidosis is named by its anion gap, as a metabolic acidosis is.
-      const metabolicPart = acid && gapKind ? `, the metabolic part${gapWords}` : '';
-      const gapDetail = acid && gapKind ? `; ${[gapShown, gapKind === 'normal-anion-gap' ? '' : ratioShown].filter(Boolean).join(', ')}` : '';
+      const metabolicPart = gapKind !== null ? `, the metabolic part${gapWords}` : '';
       text = `Consistent with a mixed metabolic and respiratory ${acid ? 'acidosis' : 'alkalosis'}${metabolicPart} (${phShown}; PaCO2 ${gas.measured(paco2, basis.co2Resolution, co2Limit)} ${acid ? 'above' : 'below'} ${gas.limit(co2Limit, paco2)} and HCO3 ${formatAgainst(hco3, HCO3_DECIMALS, hco3Limit)} mmol/L ${acid ? 'below' : 'above'} ${formatShort(hco3Limit)} mmol/L${gapDetail})`;
       break;
     }
     default: {
-      const chron = cls.respiratoryChronicity;
-      const timing = chron === 'acute' ? 'acute ' : chron === 'chronic' ? 'chronic ' : '';
-      const gapDetail = cls.primary === 'metabolic-acidosis' && gapKind ? `; ${[gapShown, gapKind === 'normal-anion-gap' ? '' : ratioShown].filter(Boolean).join(', ')}` : '';
-      text = `Consistent with ${cls.fullyCompensated ? 'a fully compensated ' : ''}${timing}${DISORDER_WORDS[cls.primary]}${cls.primary === 'metabolic-acidosis' ? gapWords : ''} (${numbers}${gapDetail})`;
+      const phase = finding.phase;
+      const timing = phase === 'acute' ? 'acute ' : phase === 'chronic' ? 'chronic ' : '';
+      text = `Consistent with ${finding.fullyCompensated ? 'a fully compensated ' : ''}${timing}${DISORDER_WORDS[primary]}${gapWords} (${numbers}${gapDetail})`;
     }
   }
   const exp = cls.expected;
-  // The disorder a compensation sentence names (one at most), not named again below.
-  let named: AcidBaseDisorder | null = null;
+  const suspected = finding.suspected;
   if (exp?.kind === 'respiratory-response') {
     // The ends of a range are shown with the decimals that keep the observed value outside or inside it, as it is.
     const o = exp.observed;
     const { low, high } = exp.range;
     const range = gas.range(low, high, o, basis.co2Resolution);
     if (cls.compensation === 'appropriate') text += `, with the expected respiratory response (PaCO2 within the expected ${range})`;
-    else if (cls.additional.includes('respiratory-acidosis')) { text += `; PaCO2 ${gas.outside(o, basis.co2Resolution, low, high, high)} is above the expected ${range}: consistent with an added respiratory acidosis`; named = 'respiratory-acidosis'; }
-    else if (cls.additional.includes('respiratory-alkalosis')) { text += `; PaCO2 ${gas.outside(o, basis.co2Resolution, low, high, low)} is below the expected ${range}: consistent with an added respiratory alkalosis`; named = 'respiratory-alkalosis'; }
+    else if (suspected === 'respiratory-acidosis') text += `; PaCO2 ${gas.outside(o, basis.co2Resolution, low, high, high)} is above the expected ${range}: consistent with an added respiratory acidosis`;
+    else if (suspected === 'respiratory-alkalosis') text += `; PaCO2 ${gas.outside(o, basis.co2Resolution, low, high, low)} is below the expected ${range}: consistent with an added respiratory alkalosis`;
   } else if (exp?.kind === 'metabolic-response') {
     const o = exp.observed;
     const acuteRange = `${rangeAgainst(exp.acute.low, exp.acute.high, 0, o)} mmol/L`;
     const chronicRange = `${rangeAgainst(exp.chronic.low, exp.chronic.high, 0, o)} mmol/L`;
     const hco3Against = `HCO3 ${formatAgainst(o, HCO3_DECIMALS, exp.acute.low, exp.acute.high, exp.chronic.low, exp.chronic.high)} mmol/L`;
-    const chron = cls.respiratoryChronicity;
-    if (cls.compensation !== 'appropriate' && cls.compensation !== 'not-applicable') {
-      const added = cls.additional.find((d) => d === 'metabolic-acidosis' || d === 'metabolic-alkalosis');
-      text += `; ${hco3Against} is outside the expected ${acuteRange} (acute) and ${chronicRange} (chronic): consistent with an added ${added ? DISORDER_WORDS[added] : 'metabolic disorder'}`;
-      if (added) named = added;
-    } else if (chron === 'acute') text += `, with HCO3 within the ${acuteRange} expected if acute (${chronicRange} if chronic)`;
-    else if (chron === 'chronic') text += `, with HCO3 within the ${chronicRange} expected if chronic (${acuteRange} if acute)`;
-    else if (chron === 'intermediate') text += `; ${hco3Against} is between the acute and chronic ranges (${acuteRange} if acute, ${chronicRange} if chronic): evolving, or acute on chronic`;
-    else if (chron === 'acute-or-chronic') text += `; ${hco3Against} is within both the acute (${acuteRange}) and the chronic (${chronicRange}) range, which overlap here, so acute cannot be told from chronic`;
+    const phase = finding.phase;
+    if (suspected !== null) text += `; ${hco3Against} is outside the expected ${acuteRange} (acute) and ${chronicRange} (chronic): consistent with an added ${suspected === 'metabolic-disorder' ? 'metabolic disorder' : DISORDER_WORDS[suspected]}`;
+    else if (phase === 'acute') text += `, with HCO3 within the ${acuteRange} expected if acute (${chronicRange} if chronic)`;
+    else if (phase === 'chronic') text += `, with HCO3 within the ${chronicRange} expected if chronic (${acuteRange} if acute)`;
+    else if (phase === 'intermediate') text += `; ${hco3Against} is between the acute and chronic ranges (${acuteRange} if acute, ${chronicRange} if chronic): evolving, or acute on chronic`;
+    else if (phase === 'acute-or-chronic') text += `; ${hco3Against} is within both the acute (${acuteRange}) and the chronic (${chronicRange}) range, which overlap here, so acute cannot be told from chronic`;
   }
-  // Most gases add no disorder: no list is made then.
-  const extra: readonly AcidBaseDisorder[] = cls.additional.length === 0 ? NONE : cls.additional.filter((d) => d !== cls.primary && d !== named);
+  const extra = finding.added;
   if (extra.length > 0) {
     // Disorders added from the anion gap: the gap (and the delta ratio, or an HCO3 not below 24) they rest on.
     const why: string[] = [];

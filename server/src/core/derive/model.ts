@@ -4,6 +4,7 @@
  * input with where it came from, and the published source.
  */
 import type { Origin } from '../analysis/model';
+import type { AcidBaseDisorder, MetabolicAcidosisKind, PrimaryAcidBaseFinding, RespiratoryChronicity } from '../physiology';
 
 export type InputOrigin = Origin | { readonly kind: 'derived'; readonly id: string };
 
@@ -111,6 +112,43 @@ export interface Interpretation {
   readonly line: number | null;
   /** Abnormal, worth a diagnostic (a normal reading is shown but not reported). */
   readonly notable: boolean;
+  /** What the acid–base reading decided, typed (topic `acid-base` only; null for every other reading). */
+  readonly acidBase: AcidBaseFinding | null;
+}
+
+/**
+ * What an acid–base reading decided, as data: what its text says in words, set by the code that
+ * decides it (derive/interpret.ts, which phrases the text from it too). What names the reading
+ * in short (the inlay hint's label, service/hints.ts) reads this, never the text.
+ */
+export interface AcidBaseFinding {
+  /**
+   * What the gas is consistent with: one disorder; a mixed metabolic and respiratory acidosis or
+   * alkalosis; normal by pH, PaCO2 and HCO3; undetermined (the pH does not follow the PaCO2 and
+   * HCO3); or `not-read`: the pH, PaCO2 and HCO3 do not fit together (PN402), and nothing is read.
+   */
+  readonly primary: PrimaryAcidBaseFinding | 'not-read';
+  /**
+   * The timing of a respiratory disorder, as the expected HCO3 tells it: acute, chronic, between
+   * the two ranges (`intermediate`: evolving, or acute on chronic), or in both (`acute-or-chronic`).
+   * Null for any other primary, or where the HCO3 is outside both ranges.
+   */
+  readonly phase: RespiratoryChronicity | null;
+  /** One disorder, fully compensated: a normal pH with the compensating component beyond its reference interval. */
+  readonly fullyCompensated: boolean;
+  /**
+   * The anion gap of the metabolic acidosis the primary names (a metabolic or a mixed acidosis):
+   * high, normal, or both (`mixed-anion-gap`). Null without a gap worked out, or for another primary.
+   */
+  readonly anionGap: MetabolicAcidosisKind | null;
+  /**
+   * The disorder the response points to when it is outside the range expected for the primary
+   * ("consistent with an added respiratory acidosis"): a suspicion, shown with a `?`.
+   * `metabolic-disorder` where the reading cannot say which. Null when the response is as expected.
+   */
+  readonly suspected: AcidBaseDisorder | 'metabolic-disorder' | null;
+  /** The further disorders the reading adds ("also consistent with an added …", from the anion gap), in the order it names them. */
+  readonly added: readonly AcidBaseDisorder[];
 }
 
 export interface TimepointDerivation {

@@ -77,5 +77,5 @@ export function readVenous(c: DeriveContext): readonly Interpretation[] {
 }
 
 function reading(basis: readonly string[], line: number, notable: boolean, text: string): Interpretation {
-  return Object.freeze({ topic: 'venous', text, basis, line, notable });
+  return Object.freeze({ topic: 'venous', text, basis, line, notable, acidBase: null });
 }

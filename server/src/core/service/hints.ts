@@ -4,7 +4,7 @@
  * whose gas unit is kPa, gas pressures in kPa first: `P/F 23.7 kPa (178) · A–a 3.2 kPa (24), ≤ 2.7`),
  * `ΔP 17 · VT 6.7 mL/kg · Cstat 25` after a vent line with a plateau, `PB 628 mmHg` after a
  * place line with an altitude, `FiO2 ≈ 0.33 (est.)` after a low-flow oxygen line, and a short
- * acid–base reading (`consistent with resp. acidosis, acute`). A value that uses an input carried forward from
+ * acid–base reading (`consistent with resp. acidosis, acute`, made from the reading's typed finding). A value that uses an input carried forward from
  * an earlier timepoint ends with `*`; its tooltip names the carried inputs. A value a finding
  * withholds (P/F where PN401 says the PaO2 cannot be) is named where it would have been:
  * `P/F, A–a withheld (PN401)`, with the reason in the tooltip.
@@ -15,7 +15,8 @@
  */
 import type { Timepoint } from '../analysis/model';
 import type { NoteResult } from '../check-note';
-import { isGasPressureValue, withheldText, type DerivedValue, type Interpretation, type NotApplicable, type Term, type TimepointDerivation } from '../derive/model';
+import { isGasPressureValue, withheldText, type AcidBaseFinding, type DerivedValue, type Interpretation, type NotApplicable, type Term, type TimepointDerivation } from '../derive/model';
+import type { AcidBaseDisorder, MetabolicAcidosisKind, RespiratoryChronicity } from '../physiology';
 import { kpaFirstCompact, kpaNumber } from '../present';
 import { formatNumber } from '../util/format';
 import { pushAll } from '../util/lists';
@@ -175,8 +176,8 @@ export function inlayHints(result: NoteResult, lines: LineSpan, options: HintOpt
       if (!options.categories.has(category)) continue;
       if (category === 'acid-base' && !outside) {
         for (const reading of derivation.interpretations) {
-          if (reading.topic !== 'acid-base' || !reading.notable || !inRange(reading.line)) continue;
-          const label = acidBaseLabel(reading.text);
+          if (reading.acidBase === null || !reading.notable || !inRange(reading.line)) continue;
+          const label = acidBaseLabel(reading.acidBase);
           if (!label) continue;
           const detail = all.filter((d) => ACID_BASE_DETAIL.includes(d.id) && d.line === reading.line);
           add(reading.line, category, { label, values: detail, withheld: NONE_WITHHELD, reading, derivation, timepoint: tp });
@@ -337,75 +338,64 @@ export function carriedInputs(d: DerivedValue, derivation: TimepointDerivation):
 
 // ── compact acid–base reading ───────────────────────────────────────────
 
-const ABBREVIATION: Readonly<Record<string, string>> = { metabolic: 'met.', respiratory: 'resp.' };
+/** Each disorder as the label names it. */
+const DISORDER_LABEL: Readonly<Record<AcidBaseDisorder, string>> = {
+  'metabolic-acidosis': 'met. acidosis',
+  'metabolic-alkalosis': 'met. alkalosis',
+  'respiratory-acidosis': 'resp. acidosis',
+  'respiratory-alkalosis': 'resp. alkalosis',
+};
 
-function disorder(kind: string, direction: string): string {
-  return `${ABBREVIATION[kind.toLowerCase()] ?? kind} ${direction.toLowerCase()}`;
-}
+/** The anion gap of the metabolic acidosis the label names: `, high AG`. */
+const ANION_GAP_LABEL: Readonly<Record<MetabolicAcidosisKind, string>> = {
+  'high-anion-gap': ', high AG',
+  'normal-anion-gap': ', normal AG',
+  'mixed-anion-gap': ', mixed AG',
+};
+
+/** The timing of a respiratory disorder as the label names it; none where the reading cannot tell. */
+const PHASE_LABEL: Readonly<Record<RespiratoryChronicity, string>> = {
+  acute: ', acute',
+  chronic: ', chronic',
+  intermediate: '',
+  'acute-or-chronic': '',
+};
 
 /**
- * A compact form of an acid–base reading, built from its classification words, saying as the
- * reading does that the gas is consistent with what it names: `consistent with resp. acidosis,
- * acute`, `consistent with met. acidosis, high AG + resp. alkalosis`, `normal pH; consistent with
- * met. acidosis + met. alkalosis`.
- * Null when the reading names no disorder.
+ * A compact form of an acid–base reading, made from what the reading decided (its typed finding,
+ * not its words), saying as the reading does that the gas is consistent with what it names:
+ * `consistent with resp. acidosis, acute`, `consistent with met. acidosis, high AG + resp.
+ * acidosis?` (a `?` for the disorder a response outside its expected range points to), `normal pH;
+ * consistent with met. acidosis + met. alkalosis`, `acid–base unclear`.
+ * Null for a gas not read (PN402).
  */
-/**
- * Finds "[fully compensated ][acute |chronic ](metabolic|respiratory) (acidosis|alkalosis)" by
- * plain word search, in the shape of a regex match: [match, compensated?, timing?, kind, direction].
- */
-function singleDisorder(text: string): (string | undefined)[] | null {
-  const lower = text.toLowerCase();
-  for (const kind of ['metabolic', 'respiratory']) {
-    for (const direction of ['acidosis', 'alkalosis']) {
-      const at = lower.indexOf(`${kind} ${direction}`);
-      if (at < 0) continue;
-      const before = lower.slice(0, at);
-      const timing = before.endsWith('acute ') ? 'acute' : before.endsWith('chronic ') ? 'chronic' : undefined;
-      const rest = timing ? before.slice(0, before.length - timing.length - 1) : before;
-      const compensated = rest.endsWith('fully compensated ') ? 'fully compensated ' : undefined;
-      return [`${kind} ${direction}`, compensated, timing, kind, direction];
+export function acidBaseLabel(finding: AcidBaseFinding): string | null {
+  const primary = finding.primary;
+  let label: string;
+  switch (primary) {
+    case 'not-read': return null;
+    case 'normal': label = NORMAL_PH; break;
+    case 'undetermined': label = UNCLEAR; break;
+    case 'mixed-acidosis': label = `mixed acidosis${anionGapLabel(finding)}`; break;
+    case 'mixed-alkalosis': label = `mixed alkalosis${anionGapLabel(finding)}`; break;
+    default: {
+      label = `${DISORDER_LABEL[primary]}${finding.phase === null ? '' : PHASE_LABEL[finding.phase]}${finding.fullyCompensated ? ', compensated' : ''}${anionGapLabel(finding)}`;
+      // An HCO3 between the acute and the chronic range: evolving, or acute on chronic.
+      if (finding.phase === 'intermediate') label += ', acute on chronic?';
     }
   }
-  return null;
-}
-
-/** The kind of metabolic acidosis a reading's first part names by its anion gap, for the label: `, high AG`. */
-function anionGapWords(first: string): string {
-  if (/high and normal anion-gap/i.test(first)) return ', mixed AG';
-  if (/high anion gap/i.test(first)) return ', high AG';
-  if (/normal anion gap/i.test(first)) return ', normal AG';
-  return '';
-}
-
-export function acidBaseLabel(text: string): string | null {
-  const first = text.split(';')[0] ?? '';
-  let label: string | null = null;
-  const mixed = /mixed metabolic and respiratory (acidosis|alkalosis)/i.exec(first);
-  const single = singleDisorder(first);
-  if (/undetermined/i.test(first)) label = UNCLEAR;
-  else if (mixed) label = `mixed ${mixed[1]!.toLowerCase()}${anionGapWords(first)}`;
-  else if (single) {
-    label = disorder(single[3]!, single[4]!);
-    if (single[2]) label += `, ${single[2].toLowerCase()}`;
-    if (single[1]) label += ', compensated';
-    label += anionGapWords(first);
-    if (/between the acute and chronic/i.test(text)) label += ', acute on chronic?';
-  } else if (/normal acid–base/i.test(first)) label = NORMAL_PH;
-  if (label === null) return null;
   const extra: string[] = [];
-  const additional = /also consistent with an added ([^;.]+)/i.exec(text);
-  if (additional?.[1]) {
-    for (const m of additional[1].matchAll(/(metabolic|respiratory) (acidosis|alkalosis)/gi)) extra.push(disorder(m[1]!, m[2]!));
-  }
-  for (const m of text.matchAll(/: consistent with an added (respiratory|metabolic) (acidosis|alkalosis|disorder)/gi)) {
-    const added = m[2]!.toLowerCase() === 'disorder' ? `${ABBREVIATION[m[1]!.toLowerCase()] ?? m[1]!} disorder?` : `${disorder(m[1]!, m[2]!)}?`;
-    if (!extra.some((e) => added.startsWith(e))) extra.push(added);
-  }
+  for (let i = 0; i < finding.added.length; i++) extra.push(DISORDER_LABEL[finding.added[i]!]);
+  const suspected = finding.suspected;
+  if (suspected !== null) extra.push(suspected === 'metabolic-disorder' ? 'met. disorder?' : `${DISORDER_LABEL[suspected]}?`);
   // An interpretation, never a diagnosis stated bare: what the label names is "consistent with"
   // it, as the tooltip says in full. A normal pH and an unreadable gas name no disorder.
   if (label === NORMAL_PH || label === UNCLEAR) return extra.length === 0 ? label : `${label}; consistent with ${extra.join(' + ')}`;
   return `consistent with ${[label, ...extra].join(' + ')}`;
+}
+
+function anionGapLabel(finding: AcidBaseFinding): string {
+  return finding.anionGap === null ? '' : ANION_GAP_LABEL[finding.anionGap];
 }
 
 const NORMAL_PH = 'normal pH';
