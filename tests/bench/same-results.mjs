@@ -7,7 +7,12 @@
 // the findings (codes, severities, messages, ranges, fixes, related places). Getters are read,
 // so values built on first read are compared too. Prints counts; exits 1 on any difference.
 //
-//   node tests/bench/same-results.mjs [old-core.js] [--notes N] [--mutants N]
+//   node tests/bench/same-results.mjs [old-core.js] [--notes N] [--mutants N] [--new-member NAME]...
+//
+// A member the typed results gained since the old build (a field of a reading, say) differs in
+// every result that has it: `--new-member NAME` leaves members of that name out of both builds'
+// canonical form, so that everything else is still compared (the old build has none, and what
+// the new member holds is for the change's own tests to show).
 //
 // The old bundle is made from an older commit, e.g. from a worktree of it:
 //   npx esbuild server/src/core/index.ts --bundle --platform=node --format=cjs --outfile=/tmp/pn-old-core.js
@@ -20,9 +25,10 @@ import { createRequire } from 'node:module';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { generateNote } from './generate.mjs';
-import { buildCore, oldPath, option } from './two-builds.mjs';
+import { args, buildCore, oldPath, option } from './two-builds.mjs';
 
 const require = createRequire(import.meta.url);
+const NEW_MEMBERS = new Set(args.filter((_a, i) => args[i - 1] === '--new-member'));
 const NOTES = option('--notes', 10000);
 const MUTANTS = option('--mutants', 3000);
 
@@ -71,6 +77,10 @@ function gettersOf(proto) {
   return names;
 }
 function keysOf(value) {
+  const keys = membersOf(value);
+  return NEW_MEMBERS.size === 0 ? keys : keys.filter((k) => !NEW_MEMBERS.has(k));
+}
+function membersOf(value) {
   for (const [is, keys] of PUBLIC) if (is(value)) return keys;
   const proto = Object.getPrototypeOf(value);
   const own = Object.keys(value);
@@ -199,5 +209,6 @@ notes.forEach(([kind, text, name], n) => {
   }
 });
 if (process.env.SAME_KEYS) for (const k of generic) console.log(`members: ${k}`);
+if (NEW_MEMBERS.size > 0) console.log(`members left out as new: ${[...NEW_MEMBERS].join(', ')}`);
 console.log(`compared ${compared} results (${[...counts].map(([k, c]) => `${c} ${k}`).join(', ')}) in ${((performance.now() - started) / 1000).toFixed(0)} s: ${differences} differences`);
 process.exit(differences === 0 ? 0 : 1);
