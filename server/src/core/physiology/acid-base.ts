@@ -18,7 +18,7 @@ export const SOURCES = Object.freeze({
   'winters-1967':
     'Albert MS, Dell RB, Winters RW. Quantitative displacement of acid-base equilibrium in metabolic acidosis. Ann Intern Med 1967;66(2):312–322 (from memory).',
   'berend-2014':
-    'Berend K, de Vries APJ, Gans ROB. Physiological approach to assessment of acid–base disturbances. N Engl J Med 2014;371(15):1434–1445 (from memory).',
+    'Berend K, de Vries APJ, Gans ROB. Physiological approach to assessment of acid–base disturbances. N Engl J Med 2014;371(15):1434–1445 (authors, title, journal and pages read on its first page, doi 10.1056/NEJMra1003327; the metabolic alkalosis rule taken from it, PaCO2 40 + 0.7 × (HCO3 − 24) ± 2, not read there: from memory).',
   'narins-emmett-1980':
     'Narins RG, Emmett M. Simple and mixed acid-base disorders: a practical approach. Medicine (Baltimore) 1980;59(3):161–187 (from memory).',
   'adrogue-madias-2010':
