@@ -73,7 +73,7 @@ describe('anion gap', () => {
     expect(anionGap(137, 100, 10)).toBe(27);
     expect(anionGap(137, -1, 10)).toBeNull();
   });
-  it('albumin correction +2.5 per g/dL below normal (Figge et al., Crit Care Med 1998; from memory): AG 10, albumin 2.0 → 15 (normal 4.0) or 16 (Figge’s 4.4)', () => {
+  it('albumin correction +2.5 per g/dL below normal (Figge et al., Crit Care Med 1998, read in its abstract): AG 10, albumin 2.0 → 15 (normal 4.0) or 16 (Figge’s 4.4)', () => {
     expect(anionGapAlbuminCorrected(10, 2)).toBeCloseTo(15, 12);
     expect(anionGapAlbuminCorrected(10, 2, 4.4)).toBeCloseTo(16, 12);
     expect(anionGapAlbuminCorrected(10, -1)).toBeNull();

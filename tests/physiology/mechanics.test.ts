@@ -134,7 +134,7 @@ describe('mechanical power, simplified (Gattinoni et al., Intensive Care Med 201
   });
 });
 
-describe('ventilatory ratio (Sinha et al., Br J Anaesth 2009; AJRCCM 2019; from memory)', () => {
+describe('ventilatory ratio (Sinha et al., Br J Anaesth 2009; AJRCCM 2019; the formula read in their abstracts: 100 mL/kg/min and 5 kPa = 37.5 mmHg)', () => {
   it('predicted ventilation 100 mL/kg/min and PaCO2 37.5 give exactly 1: PBW 70, VE 7,000 mL/min, PaCO2 37.5', () => {
     expect(ventilatoryRatio(7000, 37.5, 70)).toBeCloseTo(1, 12);
   });

@@ -28,9 +28,9 @@ export const SOURCES = Object.freeze({
   'giosa-2019':
     'Giosa L, Busana M, Pasticci I, et al. Mechanical power at a glance: a simple surrogate for volume-controlled ventilation. Intensive Care Med Exp 2019;7:61 (doi 10.1186/s40635-019-0276-8): mechanical power ≈ VE × (Ppeak + PEEP + F/6) ÷ 20 J/min, VE and inspiratory flow F in L/min, pressures in cmH2O, for volume control (read in its abstract, pmc.ncbi.nlm.nih.gov/articles/PMC6879677).',
   'sinha-2009':
-    'Sinha P, Fauvel NJ, Singh S, Soni N. Ventilatory ratio: a simple bedside measure of ventilation. Br J Anaesth 2009;102(5):692–697 (from memory).',
+    'Sinha P, Fauvel NJ, Singh S, Soni N. Ventilatory ratio: a simple bedside measure of ventilation. Br J Anaesth 2009;102(5):692–697: predicted minute ventilation 100 mL/kg/min of predicted body weight and predicted PaCO2 5 kPa (read in its abstract, profiles.wustl.edu).',
   'sinha-2019':
-    'Sinha P, Calfee CS, Beitler JR, et al. Physiologic analysis and clinical performance of the ventilatory ratio in acute respiratory distress syndrome. Am J Respir Crit Care Med 2019;199(3):333–341 (from memory).',
+    'Sinha P, Calfee CS, Beitler JR, et al. Physiologic analysis and clinical performance of the ventilatory ratio in acute respiratory distress syndrome. Am J Respir Crit Care Med 2019;199(3):333–341: ventilatory ratio = minute ventilation (mL/min) × PaCO2 (mmHg) / (PBW × 100 × 37.5) (read in its abstract on scilit.net; the journal, volume and pages from memory).',
 } as const);
 
 export type Sex = 'male' | 'female';
