@@ -56,7 +56,7 @@ describe('Henderson–Hasselbalch and hydrogen ion', () => {
   it.each(hydrogen)('pH %f ↔ [H+] %f nmol/L (the pH–[H+] table used with Kassirer & Bleich 1965; from memory)', (ph, nmol) => {
     expect(hydrogenIonNmol(ph)).toBeCloseTo(nmol, 1);
   });
-  it('Kassirer–Bleich: 24 × 40 / 24 = 40 nmol/L (pH ≈ 7.40); 24 × 60 / 30 = 48 nmol/L (pH ≈ 7.32) (Kassirer & Bleich, NEJM 1965; from memory)', () => {
+  it('Kassirer–Bleich: 24 × 40 / 24 = 40 nmol/L (pH ≈ 7.40); 24 × 60 / 30 = 48 nmol/L (pH ≈ 7.32) (Kassirer & Bleich, NEJM 1965; [H+] = 24 × PaCO2 / HCO3 read as the Henderson equation in Adrogué & Madias, JASN 2010)', () => {
     expect(kassirerBleichHydrogen(40, 24)).toBe(40);
     expect(kassirerBleichHydrogen(60, 30)).toBe(48);
     expect(Math.abs((hydrogenIonNmol(7.32) ?? 0) - 48)).toBeLessThan(0.5);

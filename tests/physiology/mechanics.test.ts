@@ -58,7 +58,7 @@ describe('predicted body weight (ARDS Network, NEJM 2000)', () => {
   });
 });
 
-describe('driving pressure and compliance (Amato et al., NEJM 2015; from memory)', () => {
+describe('driving pressure and compliance (Amato et al., NEJM 2015, read in its abstract: ΔP = VT / Crs)', () => {
   it('Pplat 27, PEEP 12 → driving pressure 15 cmH2O, the level commonly flagged (common practice)', () => {
     expect(drivingPressure(27, 12)).toBe(15);
   });
@@ -105,7 +105,7 @@ describe('mechanical power, surrogate for volume control (Giosa L et al., Intens
   });
 });
 
-describe('mechanical power, simplified (Gattinoni et al., Intensive Care Med 2016; from memory)', () => {
+describe('mechanical power, simplified (Gattinoni et al., Intensive Care Med 2016; the simplified form from memory)', () => {
   // Worked by us from the published formula; no worked example from the paper was at hand.
   it('RR 20, VT 500 mL, Ppeak 30, Pplat 25, PEEP 10 → 0.098 × 20 × 0.5 × (30 − 7.5) = 22.05 J/min', () => {
     expect(mechanicalPowerSimplified(20, 500, 30, 25, 10)).toBeCloseTo(22.05, 9);
@@ -113,6 +113,7 @@ describe('mechanical power, simplified (Gattinoni et al., Intensive Care Med 201
   it('RR 15, VT 450 mL, Ppeak 22, Pplat 18, PEEP 5 → 10.25 J/min', () => {
     expect(mechanicalPowerSimplified(15, 450, 22, 18, 5)).toBeCloseTo(10.25325, 9);
   });
+  // The full equation as quoted in the abstract of Wu SH et al., J Clin Monit Comput 2022 (doi 10.1007/s10877-022-00823-3), read.
   it('equals Gattinoni’s full power equation under constant flow: 0.098 × RR × [VT² × (½·EL + RR·(1 + I:E)/(60·I:E)·Raw) + VT × PEEP]', () => {
     const rr = 20;
     const vtL = 0.5;

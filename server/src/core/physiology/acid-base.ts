@@ -14,7 +14,7 @@ export const SOURCES = Object.freeze({
   'henderson-hasselbalch':
     'Henderson–Hasselbalch equation for the carbonic acid–bicarbonate buffer, pH = 6.1 + log10(HCO3 / (0.0307 × PaCO2)), with pK′ 6.1 and CO2 solubility 0.0307 mmol/L per mmHg in plasma at 37 °C: standard physiology (Hasselbalch KA. Biochem Z 1916;78:112–144, from memory).',
   'kassirer-bleich-1965':
-    'Kassirer JP, Bleich HL. Rapid estimation of plasma carbon dioxide tension from pH and total carbon dioxide content. N Engl J Med 1965;272:1067–1068 (from memory).',
+    'Kassirer JP, Bleich HL. Rapid estimation of plasma carbon dioxide tension from pH and total carbon dioxide content. N Engl J Med 1965;272:1067–1068 (its title and opening read on scilit.net; [H+] (nmol/L) = 24 × PaCO2 / HCO3 read as the Henderson equation in Adrogué & Madias 2010; the volume and pages from memory).',
   'winters-1967':
     'Albert MS, Dell RB, Winters RW. Quantitative displacement of acid-base equilibrium in metabolic acidosis. Ann Intern Med 1967;66(2):312–322 (its title and abstract read on scilit.net: 60 patients with untreated metabolic acidosis, PCO2 regressed on plasma bicarbonate with 95 % limits; the coefficients 1.5 × HCO3 + 8 ± 2 not given there: from memory).',
   'berend-2014':
