@@ -29,7 +29,7 @@ export const SOURCES = Object.freeze({
   'roca-2019':
     'Roca O, Caralt B, Messika J, et al. An index combining respiratory rate and oxygenation to predict outcome of nasal high-flow therapy. Am J Respir Crit Care Med 2019;199(11):1368–1376, doi 10.1164/rccm.201803-0589OC: ROX ≥ 4.88 at 2, 6 or 12 h of high flow associated with a lower risk of intubation, and < 2.85, < 3.47 and < 3.85 at 2, 6 and 12 h predicting failure (read in its abstract on atsjournals.org; the title from memory).',
   'ortiz-1987':
-    'Ortiz RM, Cilley RE, Bartlett RH. Extracorporeal membrane oxygenation in pediatric respiratory failure. Pediatr Clin North Am 1987;34(1):39–46 (oxygenation index) (from memory).',
+    'Ortiz RM, Cilley RE, Bartlett RH. Extracorporeal membrane oxygenation in pediatric respiratory failure. Pediatr Clin North Am 1987;34(1):39–46 (oxygenation index): the citation read on pure.psu.edu, whose abstract does not give the index; OI = FiO2 × MAP × 100 ÷ PaO2 from memory, the same form (FiO2 × mean airway pressure) ÷ PaO2 read in the abstract of Thomas NJ and coauthors, Pediatr Crit Care Med 2010;11(1):12–17, PMC2936504.',
   'palicc-2015':
     'Pediatric Acute Lung Injury Consensus Conference Group. Pediatric acute respiratory distress syndrome: consensus recommendations. Pediatr Crit Care Med 2015;16(5):428–439 (oxygenation index and oxygen saturation index, SpO2 ≤ 97 %): the citation as listed in the references of pages citing it; the consensus itself not read here, its SpO2 limit for the OSI from memory.',
   'severinghaus-1979':
