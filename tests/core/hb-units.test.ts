@@ -1,7 +1,9 @@
 // Haemoglobin in mmol/L, as many laboratories report it, beside g/dL and g/L. The substance
 // concentration is counted per haem-carrying chain (the monomer), molar mass 16,114.5 g/mol, a
-// quarter of the tetramer's 64,458 g/mol (from memory; the usual SI convention for haemoglobin),
-// so 1 mmol/L = 16.1145 g/L = 1.61145 g/dL and 1 g/dL ≈ 0.6206 mmol/L. The conversion is checked
+// quarter of the tetramer's 64,458 g/mol (the molar mass from memory; the usual SI convention for
+// haemoglobin), so 1 mmol/L = 16.1145 g/L = 1.61145 g/dL and 1 g/dL ≈ 0.6206 mmol/L. The factor
+// from g/dL to mmol/L, × 0.62063, counting haemoglobin subunits, was read in table 1 of the review
+// at pmc.ncbi.nlm.nih.gov/articles/PMC3934467 (iron-status tests). The conversion is checked
 // against @lhncbc/ucum-lhc, given that molecular weight. A bare Hb is still read in g/dL.
 import { UcumLhcUtils } from '@lhncbc/ucum-lhc';
 import { describe, expect, it } from 'vitest';
@@ -25,11 +27,16 @@ const hbOf = (text: string) => checkNote(text).analysis.timeline.timepoints[0]?.
 const codesOf = (text: string) => checkNote(text).findings.map((f) => f.code);
 
 describe('haemoglobin in mmol/L', () => {
-  it('converts by the molar mass of the monomer, 16,114.5 g/mol, as UCUM does given that molecular weight (from memory)', () => {
+  it('converts by the molar mass of the monomer, 16,114.5 g/mol, as UCUM does given that molecular weight (molar mass from memory; the factor read in table 1 of PMC3934467)', () => {
     expect(HB_MONOMER_G_PER_MOL).toBe(16114.5);
     expect(HB_G_PER_DL_PER_MMOL_L).toBeCloseTo(ucumHb(1, 'mmol/L', 'g/dL'), 9);
-    // 1 g/dL ≈ 0.6206 mmol/L (the factor quoted for the monomer basis; from memory).
+    // 1 g/dL × 0.62063 = mmol/L of haemoglobin subunits (read in table 1 of the review at
+    // pmc.ncbi.nlm.nih.gov/articles/PMC3934467): the same to four figures (0.62056 here).
     expect(convert(1, unitById('g/dL')!, HB_MMOL)).toBeCloseTo(0.6206, 4);
+    expect(Math.abs(convert(1, unitById('g/dL')!, HB_MMOL)! - 0.62063)).toBeLessThan(0.0001);
+    // Hb 12–16 g/dL is 7.45–9.93 mmol/L here, which that table rounds to 7.5–10 mmol/L.
+    expect(convert(12, unitById('g/dL')!, HB_MMOL)).toBeCloseTo(7.45, 2);
+    expect(convert(16, unitById('g/dL')!, HB_MMOL)).toBeCloseTo(9.93, 2);
     for (const mmol of [2.5, 5, 8, 8.7, 11]) {
       expect(convert(mmol, HB_MMOL, unitById('g/dL')!)).toBeCloseTo(ucumHb(mmol, 'mmol/L', 'g/dL'), 9);
     }

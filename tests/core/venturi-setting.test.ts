@@ -2,8 +2,8 @@
 // by a flow: its settings give about 24, 28, 31, 35, 40 and 60 % oxygen, each at an oxygen flow the
 // device names, of some 2 to 15 L/min (O'Driscoll BR, Howard LS, Earis J, Mak V, on behalf of the
 // British Thoracic Society Emergency Oxygen Guideline Group, "BTS guideline for oxygen use in adults
-// in healthcare and emergency settings", Thorax 2017;72(Suppl 1):ii1–ii90: the settings and flows
-// from memory); Venturi masks set the inspired oxygen concentration, colour-coded from 24 to 60 %
+// in healthcare and emergency settings", Thorax 2017;72(Suppl 1):ii1–ii90: the citation read in its
+// National Guideline Clearinghouse summary, the settings and flows from memory); Venturi masks set the inspired oxygen concentration, colour-coded from 24 to 60 %
 // (European Respiratory Society, European Lung White Book, "Principles of respiratory therapy",
 // figure 2, read). `oxygen venturi 0.4` was read as an oxygen flow of 0.4 L/min, which no Venturi
 // mask runs at, and its FiO2 was lost: no P/F, no A–a gradient, and the export gave the flow 0.4.

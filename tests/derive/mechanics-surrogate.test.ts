@@ -1,5 +1,5 @@
 // The mechanical power surrogate at note level: VE × (Ppeak + PEEP + F/6) / 20 (Giosa L et al.,
-// Intensive Care Med Exp 2019;7:61 — from memory), for volume control only.
+// Intensive Care Med Exp 2019;7:61 — formula read in its abstract, PMC6879677), for volume control only.
 import { describe, expect, it } from 'vitest';
 import { derivation, derived } from './helpers';
 

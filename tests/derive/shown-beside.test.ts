@@ -45,7 +45,7 @@ describe('ventilator values beside the limits their checks name', () => {
     expect(numberText(derived('@ 08:00\nvent mode VC, vt 400 mL, peep 10, plateau 27, fio2 0.5', 'driving_pressure'))).toBe('17');
   });
 
-  it('VT per kg predicted body weight beside the 8 mL/kg top of the lung-protective range (ARDS Network, NEJM 2000;342:1301–1308, from memory)', () => {
+  it('VT per kg predicted body weight beside the 8 mL/kg top of the lung-protective range (ARDS Network, NEJM 2000;342:1301–1308; the protocol card\'s at most 8 mL/kg PBW read in its reproduction at thorax.us)', () => {
     // Female, 160 cm: PBW 45.5 + 0.91 × (160 − 152.4) = 52.416 kg; 421 mL ÷ 52.416 = 8.032 mL/kg.
     const female = 'patient sex female, height 160 cm\n@ 08:00\nvent mode VC, vt 421 mL, peep 8, fio2 0.4';
     expect(derived(female, 'predicted_body_weight').value).toBeCloseTo(52.416, 3);

@@ -1,7 +1,8 @@
 // A number shown beside a threshold is never rounded onto the wrong side of it: "PaO2 60 mmHg …
 // below 60" for a PaO2 of 59.6 would contradict itself at the bedside. Thresholds: hypoxaemia
 // PaO2 < 60 and hypercapnia PaCO2 > 50 mmHg (common practice, no source); plateau 30 cmH2O (ARDS
-// Network, NEJM 2000;342:1301–1308 — from memory); driving pressure 15 cmH2O (common practice, after
+// Network, NEJM 2000;342:1301–1308 — the paper not read; the network's protocol card, plateau goal
+// 30 cmH2O or less, read in its reproduction at thorax.us); driving pressure 15 cmH2O (common practice, after
 // Amato MBP et al., NEJM 2015;372:747–755 — from memory); Winters' formula 1.5 × HCO3 + 8 ± 2
 // (Albert, Dell & Winters, Ann Intern Med 1967;66:312–322 — from memory).
 import { describe, expect, it } from 'vitest';

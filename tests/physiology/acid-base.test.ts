@@ -56,7 +56,7 @@ describe('Henderson–Hasselbalch and hydrogen ion', () => {
   it.each(hydrogen)('pH %f ↔ [H+] %f nmol/L (the pH–[H+] table used with Kassirer & Bleich 1965; from memory)', (ph, nmol) => {
     expect(hydrogenIonNmol(ph)).toBeCloseTo(nmol, 1);
   });
-  it('Kassirer–Bleich: 24 × 40 / 24 = 40 nmol/L (pH ≈ 7.40); 24 × 60 / 30 = 48 nmol/L (pH ≈ 7.32) (Kassirer & Bleich, NEJM 1965; from memory)', () => {
+  it('Kassirer–Bleich: 24 × 40 / 24 = 40 nmol/L (pH ≈ 7.40); 24 × 60 / 30 = 48 nmol/L (pH ≈ 7.32) (Kassirer & Bleich, NEJM 1965; [H+] = 24 × PaCO2 / HCO3 read as the Henderson equation in Adrogué & Madias, JASN 2010)', () => {
     expect(kassirerBleichHydrogen(40, 24)).toBe(40);
     expect(kassirerBleichHydrogen(60, 30)).toBe(48);
     expect(Math.abs((hydrogenIonNmol(7.32) ?? 0) - 48)).toBeLessThan(0.5);
@@ -73,7 +73,7 @@ describe('anion gap', () => {
     expect(anionGap(137, 100, 10)).toBe(27);
     expect(anionGap(137, -1, 10)).toBeNull();
   });
-  it('albumin correction +2.5 per g/dL below normal (Figge et al., Crit Care Med 1998; from memory): AG 10, albumin 2.0 → 15 (normal 4.0) or 16 (Figge’s 4.4)', () => {
+  it('albumin correction +2.5 per g/dL below normal (Figge et al., Crit Care Med 1998, read in its abstract): AG 10, albumin 2.0 → 15 (normal 4.0) or 16 (Figge’s 4.4)', () => {
     expect(anionGapAlbuminCorrected(10, 2)).toBeCloseTo(15, 12);
     expect(anionGapAlbuminCorrected(10, 2, 4.4)).toBeCloseTo(16, 12);
     expect(anionGapAlbuminCorrected(10, -1)).toBeNull();

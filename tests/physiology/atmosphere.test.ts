@@ -40,7 +40,7 @@ describe('barometricFromAltitudeStandard', () => {
   it('sea level is one standard atmosphere, 760 mmHg (U.S. Standard Atmosphere 1976; SI Brochure)', () => {
     expect(barometricFromAltitudeStandard(0)).toBeCloseTo(760, 3);
   });
-  it('reads ≈ 236 mmHg on the Everest summit (8,848 m), ~17 mmHg below the 253 mmHg measured there (West et al. 1983, from memory)', () => {
+  it('reads ≈ 236 mmHg on the Everest summit (8,848 m), ~17 mmHg below the 253 mmHg measured there (West et al. 1983, read in its abstract)', () => {
     const pb = barometricFromAltitudeStandard(8848) ?? 0;
     expect(pb).toBeGreaterThan(234);
     expect(pb).toBeLessThan(238);
@@ -55,10 +55,10 @@ describe('barometricFromAltitudeStandard', () => {
 });
 
 describe('barometricFromAltitudeWest (default model)', () => {
-  it('Everest summit 8,848 m: 253 mmHg measured (West et al. 1983, J Appl Physiol 54:1188; from memory), model within 2 mmHg', () => {
+  it('Everest summit 8,848 m: 253 mmHg measured (West et al. 1983, J Appl Physiol 54:1188; read in its abstract: 253.0 Torr), model within 2 mmHg', () => {
     expect(Math.abs((barometricFromAltitudeWest(8848) ?? 0) - 253)).toBeLessThanOrEqual(2);
   });
-  it('AMREE Base Camp, 5,400 m: about 400 mmHg measured (West et al. 1983; from memory), model within 1.5 %', () => {
+  it('AMREE Base Camp, 5,400 m: about 400 mmHg measured (West et al. 1983; read in its abstract: 400.4 Torr), model within 1.5 %', () => {
     expect(Math.abs((barometricFromAltitudeWest(5400) ?? 0) - 400)).toBeLessThanOrEqual(6);
   });
   it('sea level ≈ 760 mmHg (West 1996: the model is anchored at sea level; from memory)', () => {

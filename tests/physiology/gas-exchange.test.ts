@@ -88,7 +88,7 @@ describe('a/A ratio (Gilbert & Keighley 1974; from memory: normal ≳ 0.75)', ()
   });
 });
 
-describe('P/F ratio and the Berlin bands (ARDS Definition Task Force, JAMA 2012)', () => {
+describe('P/F ratio and the Berlin bands (ARDS Definition Task Force, JAMA 2012; the bands read in its table as adapted in Crit Care 2012, cc11867)', () => {
   it('P/F = PaO2 / FiO2: 90 on 0.30 = 300; 60 on 0.60 = 100', () => {
     expect(pfRatio(90, 0.3)).toBeCloseTo(300, 9);
     expect(pfRatio(60, 0.6)).toBeCloseTo(100, 9);
@@ -128,7 +128,7 @@ describe('P/F ratio and the Berlin bands (ARDS Definition Task Force, JAMA 2012)
   });
 });
 
-describe('S/F ratio (Rice et al., Chest 2007; from memory: S/F 235 ≈ P/F 200, S/F 315 ≈ P/F 300)', () => {
+describe('S/F ratio (Rice et al., Chest 2007, read in its abstract: S/F 235 ≈ P/F 200, S/F 315 ≈ P/F 300)', () => {
   it('SpO2 94 % on 0.40 → 235; SpO2 94.5 % on 0.30 → 315', () => {
     expect(sfRatio(94, 0.4)).toBeCloseTo(235, 9);
     expect(sfRatio(94.5, 0.3)).toBeCloseTo(315, 9);
@@ -136,7 +136,7 @@ describe('S/F ratio (Rice et al., Chest 2007; from memory: S/F 235 ≈ P/F 200, 
   });
 });
 
-describe('ROX index (Roca et al., J Crit Care 2016 and AJRCCM 2019; from memory)', () => {
+describe('ROX index (Roca et al., J Crit Care 2016, from memory; AJRCCM 2019, its 4.88 and 3.85 read in its abstract)', () => {
   it('SpO2 88 %, FiO2 0.60, RR 30 → 4.89, just above the 4.88 success threshold', () => {
     expect(roxIndex(88, 0.6, 30)).toBeCloseTo(4.889, 3);
   });
@@ -162,7 +162,19 @@ describe('oxygenation and oxygen saturation indices (PALICC 2015; from memory)',
   });
 });
 
-describe('oxygen dissociation curve (Severinghaus, J Appl Physiol 1979; from memory)', () => {
+describe('oxygen dissociation curve (Severinghaus, J Appl Physiol 1979; read in its abstract)', () => {
+  it('is the abstract\'s equation 1, S = (((PO2³ + 150 PO2)⁻¹ × 23,400) + 1)⁻¹, written out here again', () => {
+    for (let po2 = 1; po2 <= 600; po2 += 0.5) {
+      expect(saturationFromPo2Severinghaus(po2)).toBeCloseTo(1 / ((1 / (po2 ** 3 + 150 * po2)) * 23400 + 1), 12);
+    }
+  });
+  it('the exact inversion agrees with the abstract\'s own approximate equation 2 within 1.5 % from S 0.1 to 0.98', () => {
+    // ln PO2 = 0.385 ln((1/S − 1)⁻¹) + 3.32 − (72 S)⁻¹ − 0.17 S⁶ (Severinghaus 1979, equation 2, read in its abstract).
+    for (let s = 0.1; s <= 0.98; s += 0.01) {
+      const eq2 = Math.exp(0.385 * Math.log(1 / (1 / s - 1)) + 3.32 - 1 / (72 * s) - 0.17 * s ** 6);
+      expect(Math.abs(po2FromSaturation(s)! / eq2 - 1)).toBeLessThan(0.015);
+    }
+  });
   it('P50 of standard human blood is 26.8 mmHg → S = 0.50', () => {
     expect(Math.abs((saturationFromPo2Severinghaus(26.8) ?? 0) - 0.5)).toBeLessThanOrEqual(0.005);
   });

@@ -27,8 +27,9 @@ describe('minute ventilation', () => {
 });
 
 describe('predicted body weight (ARDS Network, NEJM 2000)', () => {
-  // ARDSNet: male 50 + 2.3 × (height in − 60), female 45.5 + 2.3 × (height in − 60); in cm the
-  // slope is 0.91 per cm (protocol's PBW table, from memory).
+  // ARDSNet: male 50 + 2.3 × (height in − 60), female 45.5 + 2.3 × (height in − 60) (the network's
+  // protocol card, read in its reproduction at thorax.us/ventilator_settings_pulmonary_me.htm); in cm
+  // the slope is 0.91 per cm (the NEJM paper's form, from memory; 2.3 ÷ 2.54 = 0.906).
   const table: ReadonlyArray<readonly [number, Sex, number, string]> = [
     [152.4, 'male', 50, '5 ft 0 in'],
     [152.4, 'female', 45.5, '5 ft 0 in'],
@@ -37,6 +38,13 @@ describe('predicted body weight (ARDS Network, NEJM 2000)', () => {
   ];
   it.each(table)('%f cm, %s → %f kg (%s)', (heightCm, sex, kg) => {
     expect(Math.abs((predictedBodyWeightKg(heightCm, sex) ?? 0) - kg)).toBeLessThanOrEqual(0.2);
+  });
+  it('agrees with the protocol card in inches within 0.3 kg from 152.4 to 213 cm (0.0045 kg per cm above 152.4) (ARDS Network protocol card, read in its reproduction at thorax.us)', () => {
+    for (let cm = 152.4; cm <= 213; cm += 0.5) {
+      const inches = cm / 2.54;
+      expect(Math.abs(predictedBodyWeightKg(cm, 'male')! - (50 + 2.3 * (inches - 60)))).toBeLessThan(0.3);
+      expect(Math.abs(predictedBodyWeightKg(cm, 'female')! - (45.5 + 2.3 * (inches - 60)))).toBeLessThan(0.3);
+    }
   });
   it('6 mL/kg PBW is the ARDSNet target: 420 mL for 70 kg', () => {
     expect(vtPerKgPbw(420, 70)).toBeCloseTo(6, 12);
@@ -50,7 +58,7 @@ describe('predicted body weight (ARDS Network, NEJM 2000)', () => {
   });
 });
 
-describe('driving pressure and compliance (Amato et al., NEJM 2015; from memory)', () => {
+describe('driving pressure and compliance (Amato et al., NEJM 2015, read in its abstract: ΔP = VT / Crs)', () => {
   it('Pplat 27, PEEP 12 → driving pressure 15 cmH2O, the level commonly flagged (common practice)', () => {
     expect(drivingPressure(27, 12)).toBe(15);
   });
@@ -81,8 +89,9 @@ describe('airway resistance (constant-flow volume control; standard mechanics, c
   });
 });
 
-describe('mechanical power, surrogate for volume control (Giosa L et al., Intensive Care Med Exp 2019;7:61; from memory)', () => {
-  // Worked by us from the published formula VE × (Ppeak + PEEP + F/6) / 20; no worked example from the paper was at hand.
+describe('mechanical power, surrogate for volume control (Giosa L et al., Intensive Care Med Exp 2019;7:61; formula read in its abstract, PMC6879677)', () => {
+  // Worked by us from the published formula VE × (Ppeak + PEEP + F/6) / 20 (VE and F in L/min, pressures in cmH2O, J/min);
+  // no worked example from the paper was at hand.
   it('VE 10 L/min, Ppeak 30, PEEP 10, flow 60 L/min → 10 × (30 + 10 + 10) / 20 = 25 J/min', () => {
     expect(mechanicalPowerSurrogate(10, 30, 10, 60)).toBeCloseTo(25, 9);
   });
@@ -96,7 +105,7 @@ describe('mechanical power, surrogate for volume control (Giosa L et al., Intens
   });
 });
 
-describe('mechanical power, simplified (Gattinoni et al., Intensive Care Med 2016; from memory)', () => {
+describe('mechanical power, simplified (Gattinoni et al., Intensive Care Med 2016; the simplified form from memory)', () => {
   // Worked by us from the published formula; no worked example from the paper was at hand.
   it('RR 20, VT 500 mL, Ppeak 30, Pplat 25, PEEP 10 → 0.098 × 20 × 0.5 × (30 − 7.5) = 22.05 J/min', () => {
     expect(mechanicalPowerSimplified(20, 500, 30, 25, 10)).toBeCloseTo(22.05, 9);
@@ -104,6 +113,7 @@ describe('mechanical power, simplified (Gattinoni et al., Intensive Care Med 201
   it('RR 15, VT 450 mL, Ppeak 22, Pplat 18, PEEP 5 → 10.25 J/min', () => {
     expect(mechanicalPowerSimplified(15, 450, 22, 18, 5)).toBeCloseTo(10.25325, 9);
   });
+  // The full equation as quoted in the abstract of Wu SH et al., J Clin Monit Comput 2022 (doi 10.1007/s10877-022-00823-3), read.
   it('equals Gattinoni’s full power equation under constant flow: 0.098 × RR × [VT² × (½·EL + RR·(1 + I:E)/(60·I:E)·Raw) + VT × PEEP]', () => {
     const rr = 20;
     const vtL = 0.5;
@@ -125,7 +135,7 @@ describe('mechanical power, simplified (Gattinoni et al., Intensive Care Med 201
   });
 });
 
-describe('ventilatory ratio (Sinha et al., Br J Anaesth 2009; AJRCCM 2019; from memory)', () => {
+describe('ventilatory ratio (Sinha et al., Br J Anaesth 2009; AJRCCM 2019; the formula read in their abstracts: 100 mL/kg/min and 5 kPa = 37.5 mmHg)', () => {
   it('predicted ventilation 100 mL/kg/min and PaCO2 37.5 give exactly 1: PBW 70, VE 7,000 mL/min, PaCO2 37.5', () => {
     expect(ventilatoryRatio(7000, 37.5, 70)).toBeCloseTo(1, 12);
   });

@@ -101,7 +101,7 @@ export const venturiSetting = defineCheck({
     example: '@ 08:00\noxygen venturi 28',
     fix: 'Write which it is: `venturi fio2 28 %` for the FiO2 read, or `venturi 28 L/min` for a flow. The quick fixes write each.',
   },
-  source: "O'Driscoll BR, Howard LS, Earis J, Mak V, on behalf of the British Thoracic Society Emergency Oxygen Guideline Group. BTS guideline for oxygen use in adults in healthcare and emergency settings. Thorax 2017;72(Suppl 1):ii1–ii90 (Venturi settings of 24, 28, 31, 35, 40 and 60 % oxygen, each at its own oxygen flow of some 2 to 15 L/min: from memory). European Respiratory Society, European Lung White Book, Principles of respiratory therapy, figure 2: Venturi masks set the inspired oxygen concentration, colour-coded from 24 to 60 %",
+  source: "O'Driscoll BR, Howard LS, Earis J, Mak V, on behalf of the British Thoracic Society Emergency Oxygen Guideline Group. BTS guideline for oxygen use in adults in healthcare and emergency settings. Thorax 2017;72(Suppl 1):ii1–ii90 (the citation read in its entry in the National Guideline Clearinghouse summary 11253; its Venturi settings of 24, 28, 31, 35, 40 and 60 % oxygen, each at its own oxygen flow of some 2 to 15 L/min: from memory). European Respiratory Society, European Lung White Book, Principles of respiratory therapy, figure 2: Venturi masks set the inspired oxygen concentration, colour-coded from 24 to 60 %",
   runTimepoint(ctx) {
     forTimepointLines(ctx, visitVenturiSetting);
   },

@@ -59,7 +59,7 @@ function readingRange(ctx: TimepointContext, line: number): Range {
 /** A reading is information, never a fault: the same advice for every reading check. */
 const READING_FIX = 'Nothing to fix: a reading to support, not replace, clinical judgement. The readings of one gas come together, so the example also shows the other reading checks (PN410–PN413).';
 
-export const oxygenationReading = interpretationCheck('PN410', 'oxygenation-reading', 'Oxygenation reading', ['oxygenation', 'oxygenation-band'], 'hypoxaemia PaO2 < 60 mmHg (setting): common practice, no source; oxygenation bands: ARDS Definition Task Force, JAMA 2012;307:2526–2533 (from memory)', {
+export const oxygenationReading = interpretationCheck('PN410', 'oxygenation-reading', 'Oxygenation reading', ['oxygenation', 'oxygenation-band'], 'hypoxaemia PaO2 < 60 mmHg (setting): common practice, no source; oxygenation bands: ARDS Definition Task Force, JAMA 2012;307:2526–2533 (the bands read in its table as adapted in Crit Care 2012, cc11867)', {
   fires: 'A gas is consistent with hypoxaemia, or with oxygenation supported by supplemental oxygen (P/F ≤ 300 mmHg on oxygen); with PEEP or CPAP ≥ 5 cmH2O, the P/F band of the Berlin definition is named — as an oxygenation band, never as a diagnosis. On noninvasive support (EPAP on NIV, CPAP on an oxygen line) the definition names only its 200–300 mmHg band, so a P/F at or below 200 mmHg there is said to be below it, with no lower band named. Not under HFOV: an oscillator sets a mean airway pressure and no PEEP, so the band\'s condition on PEEP does not apply there (the oxygenation index is shown instead).',
   example: '@ 08:00\noxygen room air\nabg 7.44/34/52/23',
   fix: READING_FIX,

@@ -14,19 +14,19 @@ export const SOURCES = Object.freeze({
   'henderson-hasselbalch':
     'Henderson–Hasselbalch equation for the carbonic acid–bicarbonate buffer, pH = 6.1 + log10(HCO3 / (0.0307 × PaCO2)), with pK′ 6.1 and CO2 solubility 0.0307 mmol/L per mmHg in plasma at 37 °C: standard physiology (Hasselbalch KA. Biochem Z 1916;78:112–144, from memory).',
   'kassirer-bleich-1965':
-    'Kassirer JP, Bleich HL. Rapid estimation of plasma carbon dioxide tension from pH and total carbon dioxide content. N Engl J Med 1965;272:1067–1068 (from memory).',
+    'Kassirer JP, Bleich HL. Rapid estimation of plasma carbon dioxide tension from pH and total carbon dioxide content. N Engl J Med 1965;272:1067–1068 (its title and opening read on scilit.net; [H+] (nmol/L) = 24 × PaCO2 / HCO3 read as the Henderson equation in Adrogué & Madias 2010; the volume and pages from memory).',
   'winters-1967':
-    'Albert MS, Dell RB, Winters RW. Quantitative displacement of acid-base equilibrium in metabolic acidosis. Ann Intern Med 1967;66(2):312–322 (from memory).',
+    'Albert MS, Dell RB, Winters RW. Quantitative displacement of acid-base equilibrium in metabolic acidosis. Ann Intern Med 1967;66(2):312–322 (its title and abstract read on scilit.net: 60 patients with untreated metabolic acidosis, PCO2 regressed on plasma bicarbonate with 95 % limits; the coefficients 1.5 × HCO3 + 8 ± 2 not given there: from memory).',
   'berend-2014':
-    'Berend K, de Vries APJ, Gans ROB. Physiological approach to assessment of acid–base disturbances. N Engl J Med 2014;371(15):1434–1445 (from memory).',
+    'Berend K, de Vries APJ, Gans ROB. Physiological approach to assessment of acid–base disturbances. N Engl J Med 2014;371(15):1434–1445 (authors, title, journal and pages read on its first page, doi 10.1056/NEJMra1003327; the metabolic alkalosis rule taken from it, PaCO2 40 + 0.7 × (HCO3 − 24) ± 2, not read there: from memory).',
   'narins-emmett-1980':
     'Narins RG, Emmett M. Simple and mixed acid-base disorders: a practical approach. Medicine (Baltimore) 1980;59(3):161–187 (from memory).',
   'adrogue-madias-2010':
-    'Adrogué HJ, Madias NE. Secondary responses to altered acid-base status: the rules of engagement. J Am Soc Nephrol 2010;21(6):920–923 (from memory).',
+    'Adrogué HJ, Madias NE. Secondary responses to altered acid-base status: the rules of engagement. J Am Soc Nephrol 2010;21(6):920–923 (the citation and the Henderson equation [H+] = 24 × PaCO2 / [HCO3] read in its opening paragraphs, doi 10.1681/ASN.2009121211; the coefficients of the secondary responses not read there: from memory).',
   'figge-1998':
-    'Figge J, Jabor A, Kazda A, Fencl V. Anion gap and hypoalbuminemia. Crit Care Med 1998;26(11):1807–1810 (from memory).',
+    'Figge J, Jabor A, Kazda A, Fencl V. Anion gap and hypoalbuminemia. Crit Care Med 1998;26(11):1807–1810: the observed gap plus 0.25 × (normal − observed albumin) in g/L, 2.5 in g/dL (read in its abstract, PubMed 9824071; the normal albumin is not given there, 4.0 g/dL here and 4.4 in some use).',
   'rastegar-2007':
-    'Rastegar A. Use of the ΔAG/ΔHCO3− ratio in the diagnosis of mixed acid-base disorders. J Am Soc Nephrol 2007;18(9):2429–2431 (from memory).',
+    'Rastegar A. Use of the ΔAG/ΔHCO3− ratio in the diagnosis of mixed acid-base disorders. J Am Soc Nephrol 2007;18(9):2429–2431 (the citation, doi 10.1681/ASN.2006121408, read in its opening paragraph, which gives albumin 2.5 mEq/L of gap per g/dL; the bands of the ratio not read there: from memory).',
   'anion-gap':
     'Anion gap = Na − (Cl + HCO3), optionally + K; normal about 12 mmol/L (8–12 with modern analysers): common practice, no source.',
   'acid-base-reference-intervals':

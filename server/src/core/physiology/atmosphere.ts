@@ -13,7 +13,7 @@ export const SOURCES = Object.freeze({
   'west-1996':
     'West JB. Prediction of barometric pressures at high altitudes with the use of model atmospheres. J Appl Physiol 1996;81(4):1850–1854 (from memory).',
   'west-1983':
-    'West JB, Lahiri S, Maret KH, Peters RM Jr, Pizzo CJ. Barometric pressures at extreme altitudes on Mt. Everest: physiological significance. J Appl Physiol 1983;54(5):1188–1194 (from memory).',
+    'West JB, Lahiri S, Maret KH, Peters RM Jr, Pizzo CJ. Barometric pressures at extreme altitudes on Mt. Everest: physiological significance. J Appl Physiol 1983;54(5):1188–1194: mean pressures 400.4 Torr at 5,400 m and 253.0 Torr on the summit, 8,848 m (read in its abstract, in a copy of the article).',
   'us-standard-atmosphere-1976':
     'NOAA, NASA, US Air Force. U.S. Standard Atmosphere, 1976 (NOAA-S/T 76-1562). Washington DC: US Government Printing Office, 1976; its troposphere layer is the same as the ICAO Standard Atmosphere (ICAO Doc 7488) (from memory).',
   'buck-1981':

@@ -11,7 +11,7 @@ import { allFinite, finiteOrNull, forBand, inClosedRange, isFio2Fraction, isPerc
 /** Citations for the formulas in this module (key → citation). */
 export const SOURCES = Object.freeze({
   'arterial-end-tidal-co2':
-    'Arterial to end-tidal CO2 difference P(a–et)CO2 = PaCO2 − EtCO2: usually under about 5 mmHg (2–5 mmHg) and wider with more alveolar dead space (pulmonary embolism, low cardiac output): AARC Clinical Practice Guideline. Capnography/capnometry during mechanical ventilation, 2003 revision & update. Respir Care 2003;48:534–539 (as cited by a secondary page, not read here); Hatle L, Rokseth R. The arterial to end-expiratory carbon dioxide tension gradient in acute pulmonary embolism and other cardiopulmonary diseases. Chest 1974;66:352–357 (as cited, not read here).',
+    'Arterial to end-tidal CO2 difference P(a–et)CO2 = PaCO2 − EtCO2: usually under about 5 mmHg (2–5 mmHg) and wider with more alveolar dead space (pulmonary embolism, low cardiac output): AARC Clinical Practice Guideline. Capnography/capnometry during mechanical ventilation, 2003 revision & update. Respir Care 2003;48(5):534–539 (its title and citation read on its page at rcjournal.com/cpgs/05.03.0534.html; the 2–5 mmHg figure not read here in it but as cited by a secondary page); Hatle L, Rokseth R. The arterial to end-expiratory carbon dioxide tension gradient in acute pulmonary embolism and other cardiopulmonary diseases. Chest 1974;66:352–357 (as cited, not read here).',
   'alveolar-gas-equation':
     'Fenn WO, Rahn H, Otis AB. A theoretical study of the composition of the alveolar air at altitude. Am J Physiol 1946;146:637–653; Riley RL, Cournand A. "Ideal" alveolar air and the analysis of ventilation-perfusion relationships in the lungs. J Appl Physiol 1949;1:825–847 (both from memory). The simplified form with R = 0.8 is common practice.',
   'aa-gradient-age-rules':
@@ -21,19 +21,19 @@ export const SOURCES = Object.freeze({
   'gilbert-keighley-1974':
     'Gilbert R, Keighley JF. The arterial/alveolar oxygen tension ratio: an index of gas exchange applicable to varying inspired oxygen concentrations. Am Rev Respir Dis 1974;109(1):142–145 (from memory).',
   'berlin-2012':
-    'ARDS Definition Task Force (Ranieri VM et al.). Acute respiratory distress syndrome: the Berlin Definition. JAMA 2012;307(23):2526–2533 (from memory).',
+    'ARDS Definition Task Force (Ranieri VM et al.). Acute respiratory distress syndrome: the Berlin Definition. JAMA 2012;307(23):2526–2533, doi 10.1001/jama.2012.5669: the paper itself not read here; its oxygenation bands with PEEP or CPAP of at least 5 cmH2O (200 < P/F ≤ 300, 100 < P/F ≤ 200, P/F ≤ 100) and its altitude correction above 1,000 m, P/F × PB/760, read in its table as adapted in Crit Care 2012 (ccforum.biomedcentral.com/articles/10.1186/cc11867/tables/1), the citation in the Merck Manual\'s table adapted from it.',
   'rice-2007':
-    'Rice TW, Wheeler AP, Bernard GR, Hayden DL, Schoenfeld DA, Ware LB. Comparison of the SpO2/FIO2 ratio and the PaO2/FIO2 ratio in patients with acute lung injury or ARDS. Chest 2007;132(2):410–417 (from memory).',
+    'Rice TW, Wheeler AP, Bernard GR, Hayden DL, Schoenfeld DA, Ware LB. Comparison of the SpO2/FIO2 ratio and the PaO2/FIO2 ratio in patients with acute lung injury or ARDS. Chest 2007;132(2):410–417: S/F = 64 + 0.84 × P/F in SpO2 below 97 %, S/F 235 corresponding to P/F 200 and 315 to P/F 300 (read in its abstract; the journal, volume and pages from memory).',
   'roca-2016':
     'Roca O, Messika J, Caralt B, et al. Predicting success of high-flow nasal cannula in pneumonia patients with hypoxemic respiratory failure: the utility of the ROX index. J Crit Care 2016;35:200–205 (from memory).',
   'roca-2019':
-    'Roca O, Caralt B, Messika J, et al. An index combining respiratory rate and oxygenation to predict outcome of nasal high-flow therapy. Am J Respir Crit Care Med 2019;199(11):1368–1376 (from memory).',
+    'Roca O, Caralt B, Messika J, et al. An index combining respiratory rate and oxygenation to predict outcome of nasal high-flow therapy. Am J Respir Crit Care Med 2019;199(11):1368–1376, doi 10.1164/rccm.201803-0589OC: ROX ≥ 4.88 at 2, 6 or 12 h of high flow associated with a lower risk of intubation, and < 2.85, < 3.47 and < 3.85 at 2, 6 and 12 h predicting failure (read in its abstract on atsjournals.org; the title from memory).',
   'ortiz-1987':
-    'Ortiz RM, Cilley RE, Bartlett RH. Extracorporeal membrane oxygenation in pediatric respiratory failure. Pediatr Clin North Am 1987;34(1):39–46 (oxygenation index) (from memory).',
+    'Ortiz RM, Cilley RE, Bartlett RH. Extracorporeal membrane oxygenation in pediatric respiratory failure. Pediatr Clin North Am 1987;34(1):39–46 (oxygenation index): the citation read on pure.psu.edu, whose abstract does not give the index; OI = FiO2 × MAP × 100 ÷ PaO2 from memory, the same form (FiO2 × mean airway pressure) ÷ PaO2 read in the abstract of Thomas NJ and coauthors, Pediatr Crit Care Med 2010;11(1):12–17, PMC2936504.',
   'palicc-2015':
-    'Pediatric Acute Lung Injury Consensus Conference Group. Pediatric acute respiratory distress syndrome: consensus recommendations. Pediatr Crit Care Med 2015;16(5):428–439 (oxygenation index and oxygen saturation index, SpO2 ≤ 97 %) (from memory).',
+    'Pediatric Acute Lung Injury Consensus Conference Group. Pediatric acute respiratory distress syndrome: consensus recommendations. Pediatr Crit Care Med 2015;16(5):428–439 (oxygenation index and oxygen saturation index, SpO2 ≤ 97 %): the citation as listed in the references of pages citing it; the consensus itself not read here, its SpO2 limit for the OSI from memory.',
   'severinghaus-1979':
-    'Severinghaus JW. Simple, accurate equations for human blood O2 dissociation computations. J Appl Physiol 1979;46(3):599–602 (from memory).',
+    'Severinghaus JW. Simple, accurate equations for human blood O2 dissociation computations. J Appl Physiol 1979;46(3):599–602: S = (((PO2³ + 150 × PO2)^−1 × 23,400) + 1)^−1, within ±0.0055 of the standard curve (read in its abstract on jap.physiology.org).',
   'ellis-1989':
     'Ellis RK. Determination of PO2 from saturation. J Appl Physiol 1989;67(2):902 (letter; exact inversion of the Severinghaus equation) (from memory).',
 } as const);

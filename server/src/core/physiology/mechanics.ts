@@ -15,22 +15,22 @@ const ARDSNET_2000 =
 /** Citations for the formulas in this module (key → citation). */
 export const SOURCES = Object.freeze({
   'ardsnet-2000':
-    `${ARDSNET_2000} (predicted body weight: male 50 + 0.91 × (height cm − 152.4), female 45.5 + 0.91 × (height cm − 152.4)) (from memory).`,
-  'ardsnet-2000-plateau': `${ARDSNET_2000} (plateau pressure kept at or below 30 cmH2O) (from memory).`,
+    `${ARDSNET_2000} (predicted body weight: male 50 + 0.91 × (height cm − 152.4), female 45.5 + 0.91 × (height cm − 152.4); tidal volume 6 mL/kg, 4–8): the paper itself not read here, its per-cm slope 0.91 from memory; the network's protocol card, male 50 + 2.3 × (height in − 60), female 45.5 + 2.3 × (height in − 60), VT 6 mL/kg PBW, at least 4 and at most 8, read in its reproduction at thorax.us/ventilator_settings_pulmonary_me.htm (2.3 per inch is 0.906 per cm, the same to the rounding).`,
+  'ardsnet-2000-plateau': `${ARDSNET_2000} (plateau pressure kept at or below 30 cmH2O): the paper not read here; the network's protocol card, plateau pressure goal 30 cmH2O or less, read in its reproduction at thorax.us/ventilator_settings_pulmonary_me.htm.`,
   'amato-2015':
-    'Amato MBP, Meade MO, Slutsky AS, et al. Driving pressure and survival in the acute respiratory distress syndrome. N Engl J Med 2015;372(8):747–755 (from memory).',
+    'Amato MBP, Meade MO, Slutsky AS, et al. Driving pressure and survival in the acute respiratory distress syndrome. N Engl J Med 2015;372(8):747–755: driving pressure ΔP = VT / Crs, a 1-SD increment (about 7 cmH2O) associated with increased mortality, relative risk 1.41 (read in its abstract; the issue number from memory).',
   'respiratory-mechanics':
     'Static compliance VT / (Pplat − PEEP), dynamic compliance VT / (Ppeak − PEEP), resistance (Ppeak − Pplat) / flow in constant-flow volume control, minute ventilation VT × RR: standard respiratory mechanics; common practice, no single source.',
   'gattinoni-2016':
-    'Gattinoni L, Tonetti T, Cressoni M, et al. Ventilator-related causes of lung injury: the mechanical power. Intensive Care Med 2016;42(10):1567–1575 (from memory).',
+    'Gattinoni L, Tonetti T, Cressoni M, et al. Ventilator-related causes of lung injury: the mechanical power. Intensive Care Med 2016;42(10):1567–1575, doi 10.1007/s00134-016-4505-2: mechanical power from the equation of motion multiplied by the change of volume and the rate, which it reports rises with tidal volume, driving pressure and flow squared (read in its abstract on link.springer.com; the full equation, 0.098 × RR × {VT² × [½ × Ers + RR × (1 + I:E) / (60 × I:E) × Raw] + VT × PEEP}, read as quoted in the abstract of Wu SH and coauthors, J Clin Monit Comput 2022, doi 10.1007/s10877-022-00823-3; the simplified form Pneumark uses, 0.098 × RR × VT × (Ppeak − ½ × (Pplat − PEEP)), equals it under constant inspiratory flow, and is not read as such: from memory).',
   'becher-2019':
-    'Becher T, van der Staay M, Schädler D, Frerichs I, Weiler N. Calculation of mechanical power for pressure-controlled ventilation. Intensive Care Med 2019 (letter): the simplified equation assumes volume control with a linear rise of airway pressure and does not suit pressure-controlled breaths (read in its opening paragraph; its own equations for those modes not read in full, so not used).',
+    'Becher T, van der Staay M, Schädler D, Frerichs I, Weiler N. Calculation of mechanical power for pressure-controlled ventilation. Intensive Care Med 2019 (letter; doi 10.1007/s00134-019-05636-8): the simplified equation assumes volume control with a linear rise of airway pressure and does not suit pressure-controlled breaths (read in its opening paragraph, on link.springer.com/article/10.1007/s00134-019-05636-8; its own equations for those modes not read in full, so not used).',
   'giosa-2019':
-    'Giosa L, Busana M, Pasticci I, et al. Mechanical power at a glance: a simple surrogate for volume-controlled ventilation. Intensive Care Med Exp 2019;7:61 (from memory).',
+    'Giosa L, Busana M, Pasticci I, et al. Mechanical power at a glance: a simple surrogate for volume-controlled ventilation. Intensive Care Med Exp 2019;7:61 (doi 10.1186/s40635-019-0276-8): mechanical power ≈ VE × (Ppeak + PEEP + F/6) ÷ 20 J/min, VE and inspiratory flow F in L/min, pressures in cmH2O, for volume control (read in its abstract, pmc.ncbi.nlm.nih.gov/articles/PMC6879677).',
   'sinha-2009':
-    'Sinha P, Fauvel NJ, Singh S, Soni N. Ventilatory ratio: a simple bedside measure of ventilation. Br J Anaesth 2009;102(5):692–697 (from memory).',
+    'Sinha P, Fauvel NJ, Singh S, Soni N. Ventilatory ratio: a simple bedside measure of ventilation. Br J Anaesth 2009;102(5):692–697: predicted minute ventilation 100 mL/kg/min of predicted body weight and predicted PaCO2 5 kPa (read in its abstract, profiles.wustl.edu).',
   'sinha-2019':
-    'Sinha P, Calfee CS, Beitler JR, et al. Physiologic analysis and clinical performance of the ventilatory ratio in acute respiratory distress syndrome. Am J Respir Crit Care Med 2019;199(3):333–341 (from memory).',
+    'Sinha P, Calfee CS, Beitler JR, et al. Physiologic analysis and clinical performance of the ventilatory ratio in acute respiratory distress syndrome. Am J Respir Crit Care Med 2019;199(3):333–341: ventilatory ratio = minute ventilation (mL/min) × PaCO2 (mmHg) / (PBW × 100 × 37.5) (read in its abstract on scilit.net; the journal, volume and pages from memory).',
 } as const);
 
 export type Sex = 'male' | 'female';

@@ -17,7 +17,7 @@ export const SOURCES = Object.freeze({
   'glucose-molar-mass':
     'Molar mass of glucose C6H12O6 = 6 × 12.011 + 12 × 1.008 + 6 × 15.999 = 180.16 g/mol, from the conventional standard atomic weights of IUPAC/CIAAW (Prohaska T et al. Standard atomic weights of the elements 2021 (IUPAC Technical Report). Pure Appl Chem 2022;94(5):573–600) (from memory).',
   'haemoglobin-molar-mass':
-    'Haemoglobin as a substance concentration is counted per haem-carrying globin chain (the monomer), molar mass 16,114.5 g/mol, a quarter of the tetramer\'s 64,458 g/mol: the convention laboratories reporting Hb in mmol/L use (1 g/dL ≈ 0.6206 mmol/L) (from memory; a tetramer basis, 0.155 mmol/L per g/dL, is also met and is not the one read here).',
+    'Haemoglobin as a substance concentration is counted per haem-carrying globin chain (the monomer), molar mass 16,114.5 g/mol, a quarter of the tetramer\'s 64,458 g/mol: the convention laboratories reporting Hb in mmol/L use, 1 g/dL ≈ 0.6206 mmol/L (the factor × 0.62063 from g/dL to mmol/L, with the note that it counts haemoglobin subunits and that the tetramer of about 64 kDa gives a quarter of it, read in its table 1 at pmc.ncbi.nlm.nih.gov/articles/PMC3934467, a review of iron-status tests; the molar mass 16,114.5 itself is from memory and agrees with that factor to four figures: 1 ÷ 1.61145 = 0.62056). A tetramer basis, 0.155 mmol/L per g/dL, is also met and is not used.',
 } as const);
 
 /** Pascals in one conventional millimetre of mercury (13.5951 g/cm³ × 9.80665 m/s² × 1 mm). Source: `nist-sp811`. */
