@@ -10,7 +10,7 @@ import type { Finding, Severity } from '../core/types';
 import { notePseudonym } from '../core/export/pseudonym';
 import { NONE } from '../core/util/lists';
 import { ProjectConfigs } from '../node/project-config';
-import { isBlankNote, noteFromBytes, NO_NOTE, readNoteBytes, type NoteBytes, type NoteInput } from './inputs';
+import { isBlankNote, noteFromBytes, NO_NOTE, readNoteBytes, shownPath, type NoteBytes, type NoteInput } from './inputs';
 import { countSeverities, type SeverityCounts } from './render-show';
 import { timepointsJson } from './timepoints-json';
 
@@ -45,20 +45,27 @@ export class NoteWorker {
   /** The settings of the notes of each folder seen so far. */
   private readonly settings = new Map<string, Partial<Settings>>();
 
+  /**
+   * `stdinName`: the path `--stdin-name` gave the note read from standard input (as
+   * `shownFilePath` writes it), which names it in output and says where it lives; null when not given.
+   */
   constructor(
     private readonly cwd: string,
     private readonly overrides: Partial<Settings>,
     private readonly exportRenderer: ExportRenderer | null = null,
+    readonly stdinName: string | null = null,
   ) {}
 
   /**
    * The settings of the project file found upward from the note's folder; for standard input,
-   * upward from the working folder (so `cat note | pneumark check -` reads the note as
-   * `pneumark check note` would there).
+   * upward from the folder of its `--stdin-name` path (the file need not exist), else from the
+   * working folder (so `cat note | pneumark check -` reads the note as `pneumark check note` would
+   * there).
    */
   settingsFor(path: string): Partial<Settings> {
-    // `-` (standard input) stands for a note in the working folder.
-    const abs = isAbsolute(path) ? path : join(this.cwd, path);
+    // `-` (standard input) without a name stands for a note in the working folder.
+    const named = path === '-' && this.stdinName !== null ? this.stdinName : path;
+    const abs = isAbsolute(named) ? named : join(this.cwd, named);
     // Once per folder: a run reads each project file once, and notes of one folder share their
     // settings (looking up a folder that has a project file costs a stat of that file each time).
     const folder = dirname(abs);
@@ -77,7 +84,12 @@ export class NoteWorker {
 
   /** The note's bytes (or why they cannot be read), so a big note can be sent elsewhere before it is analysed. */
   read(path: string, stdin: () => Buffer): NoteBytes {
-    return readNoteBytes(path, this.cwd, stdin);
+    return readNoteBytes(path, this.cwd, stdin, this.stdinName);
+  }
+
+  /** How output names the note at `path` (`-`: standard input, by its `--stdin-name` path when given). */
+  shown(path: string): string {
+    return shownPath(path, this.stdinName);
   }
 
   /**
