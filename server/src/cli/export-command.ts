@@ -117,9 +117,14 @@ export async function runExport(args: readonly string[], io: Io): Promise<number
     if (opts.format === 'csv') {
       if (typeof payload === 'string') output.write(payload);
     } else if (opts.format === 'jsonl') {
-      if (typeof payload === 'string' && payload.length > 0) output.write(payload.endsWith('\n') ? payload : `${payload}\n`);
+      if (typeof payload === 'string' && payload.length > 0) {
+        output.write(payload);
+        if (!payload.endsWith('\n')) output.write('\n');
+      }
     } else if (typeof payload === 'string') {
-      output.write(`${bundles++ === 0 ? '' : ',\n'}${payload}`);
+      // Apart: the two together would be copied into one string as long as the bundle.
+      if (bundles++ > 0) output.write(',\n');
+      output.write(payload);
     } else if (payload === null && r.problem === null) {
       return TOO_BIG_BUNDLE;
     }

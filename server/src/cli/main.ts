@@ -210,8 +210,8 @@ function workerMain(): void {
   const worker = new NoteWorker(data.cwd, data.overrides, exportRenderer, data.stdinName);
   // JSON output: the worker writes out each note's entry (see jsonFileEntry).
   const withEntry = (r: FileReport): FileReport => {
-    if (r.timepoints === undefined) return r;
-    const { timepoints: _inEntry, ...rest } = r;
+    if (r.timepoints === undefined && r.timepointTexts === undefined) return r;
+    const { timepoints: _inEntry, timepointTexts: _written, ...rest } = r;
     const { entry, problem } = jsonFileEntryOrProblem(r, data.task.kind === 'check' && data.task.errorsOnly === true);
     return { ...rest, entry, problem };
   };

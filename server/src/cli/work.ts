@@ -12,6 +12,7 @@ import { NONE } from '../core/util/lists';
 import { ProjectConfigs } from '../node/project-config';
 import { isBlankNote, noteFromBytes, NO_NOTE, readNoteBytes, shownPath, type NoteBytes, type NoteInput } from './inputs';
 import { countSeverities, type SeverityCounts } from './render-show';
+import { timepointText } from './render-check';
 import { timepointsJson } from './timepoints-json';
 
 export type Task =
@@ -30,6 +31,8 @@ export interface FileReport {
   readonly counts?: SeverityCounts;
   /** `check --format json`: the timepoints with values, derived values and readings. */
   readonly timepoints?: unknown[];
+  /** `check --format json`: the same, each written as nested in the note's entry (what `analyse` gives). */
+  readonly timepointTexts?: readonly string[];
   /** `check --format json` in a worker: the note's entry in the output, written out (the timepoints left out above). */
   readonly entry?: string;
   /** `export`: what the format needs for this note (rows, lines or a bundle). */
@@ -104,7 +107,9 @@ export class NoteWorker {
     // An export reads every timepoint's derived values: it finishes the derivations the checks began.
     const result = checkNote(note.text, this.settingsFor(path), task.kind === 'export' ? KEEP_DERIVATIONS : undefined);
     if (task.kind === 'check') {
-      const timepoints = task.timepoints ? { timepoints: timepointsJson(result) } : {};
+      // Each timepoint written out at once: a note of thousands of timepoints keeps a string each
+      // until its entry is written, not the objects they are written from.
+      const timepoints = task.timepoints ? { timepointTexts: timepointsJson(result, timepointText) } : {};
       // `--quiet` shows errors only and counts the rest: only the counts of the others are kept
       // (and cross back from a worker), not a hundred thousand findings of a big folder.
       if (task.errorsOnly) return { path: note.path, problem: null, findings: result.findings.filter((f) => f.severity === 'error'), counts: countSeverities(result.findings), ...timepoints };
