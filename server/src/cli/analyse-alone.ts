@@ -10,7 +10,7 @@ import { Worker } from 'node:worker_threads';
 import { z } from 'zod';
 import type { Settings } from '../core/settings';
 import { UsageError, wholeNumberOption } from './args';
-import { MAX_NOTE_BYTES, STDIN_NAME } from './inputs';
+import { MAX_NOTE_BYTES, shownPath } from './inputs';
 import type { BatchDone, WorkItem } from './pool';
 import { unpackReport, type FileReport, type Task } from './work';
 
@@ -78,6 +78,8 @@ export interface AloneOptions {
   readonly cwd: string;
   readonly overrides: Partial<Settings>;
   readonly heapMb: number;
+  /** The `--stdin-name` path of the note read from standard input (null: none given). */
+  readonly stdinName: string | null;
 }
 
 /**
@@ -88,13 +90,13 @@ export interface AloneOptions {
  * without an answer gives the note a problem.
  */
 export function analyseAlone(path: string, index: number, bytes: Uint8Array | null, task: Task, options: AloneOptions): Promise<FileReport> {
-  const shown = path === '-' ? STDIN_NAME : path;
+  const shown = shownPath(path, options.stdinName);
   const failed = (problem: string): FileReport => ({ path: shown, problem, findings: [] });
   return new Promise<FileReport>((resolve) => {
     let worker: Worker;
     try {
       worker = new Worker(__filename, {
-        workerData: { pneumarkWorker: true, cwd: options.cwd, overrides: options.overrides, task, aloneFrom: null },
+        workerData: { pneumarkWorker: true, cwd: options.cwd, overrides: options.overrides, task, aloneFrom: null, stdinName: options.stdinName },
         resourceLimits: { maxOldGenerationSizeMb: options.heapMb },
       });
     } catch (error) {

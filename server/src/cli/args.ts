@@ -2,6 +2,7 @@
  * What every command shares: the I/O seam (so tests can run commands in memory), exit codes,
  * help texts, and strict option parsing validated with zod.
  */
+import { sep } from 'node:path';
 import { parseArgs } from 'node:util';
 import { z } from 'zod';
 import { wordList } from '../core/util/format';
@@ -34,7 +35,8 @@ node_modules are skipped), a glob pattern in quotes ("notes/**/*.pneu"; its .pne
 too) or - for standard input. A path that exists is read as a path even when it holds [ ] or
 ( ). --exclude PATTERN and .pneuignore files leave notes out (gitignore syntax); a .pneuignore
 applies below its own folder, as a .gitignore does: the working folder's, and those in the
-folders on the way to each note.
+folders on the way to each note. --stdin-name PATH (check, export, fmt) names the note read from
+- as the file PATH, which need not exist (--stdin-name without - among the inputs is a usage error).
 Run \`pneumark COMMAND --help\` for a command's options.
 
 Exit codes: 0 clean; 1 findings at error level, more warnings than --max-warnings, or notes that
@@ -71,7 +73,10 @@ Options:
   --exclude PATTERN          leave out paths matching PATTERN (gitignore syntax), or a
                              path (absolute, or from ./ or ../); repeatable
   --jobs N                   worker threads (0 or 1: none); default one per core, up to 4, from 2000 notes
-  --no-progress              no progress bar, even on a terminal`,
+  --no-progress              no progress bar, even on a terminal
+  --stdin-name PATH          the path of the note read from - (standard input), for editors and
+                             pipelines: output names the note so, and pneumark.config.json is
+                             looked up from its folder, as for a file there (which need not exist)`,
   export: `Usage: pneumark export PATH... --format csv|jsonl|fhir [options]
 
 Options:
@@ -93,8 +98,13 @@ Options:
                              path (absolute, or from ./ or ../); repeatable
   --jobs N                   worker threads (0 or 1: none); default one per core, up to 4, from 2000 notes
   --no-progress              no progress bar, even on a terminal
+  --stdin-name PATH          the path of the note read from - (standard input), for editors and
+                             pipelines: its file column and FHIR ids are made from it as for a file
+                             of that path (so ids stay the same when the text is edited; with
+                             --redact, its place in the run is that of such a file), and
+                             pneumark.config.json is looked up from its folder (it need not exist)
 Columns are listed in README.md ("Export columns").`,
-  fmt: `Usage: pneumark fmt PATH... [--check | --write] [--force]
+  fmt: `Usage: pneumark fmt PATH... [--check | --write] [--force] [--stdin-name PATH]
 
 Without --check or --write, prints the formatted note (one file only).
 
@@ -108,7 +118,9 @@ Options:
   --force                    with --write: also rewrite notes that have syntax errors (their broken
                              lines are kept as they are)
   --exclude PATTERN          leave out paths matching PATTERN (gitignore syntax), or a
-                             path (absolute, or from ./ or ../); repeatable`,
+                             path (absolute, or from ./ or ../); repeatable
+  --stdin-name PATH          the path of the note read from - (standard input), as messages name it
+                             (it need not exist)`,
   docs: `Usage: pneumark docs [--write FILE] [--grammar FILE] [--readme FILE]
 
 Prints (or writes) the documentation of every check, generated from the check registry.
@@ -142,6 +154,19 @@ export function wholeNumberOption(min: number, max: number, message: string, sig
     .transform(Number)
     .pipe(z.number().int({ message }).min(min, { message }).max(max, { message }));
 }
+
+/**
+ * `--stdin-name PATH` (check, export, fmt): the path of the note read from `-`. Any path a file
+ * could have, existing or not; not a folder's (ending in a slash), not `-`, and no NUL character,
+ * which no path holds.
+ */
+export const stdinNameOption = z.string()
+  .min(1, { message: 'must not be empty (name the file the note read from - stands for)' })
+  .max(4096, { message: 'is too long for a path (at most 4096 characters)' })
+  .refine((p) => !p.includes('\u0000'), { message: 'holds a NUL character, which no path holds' })
+  .refine((p) => p !== '-', { message: 'names standard input itself; give the path of the file the note stands for' })
+  .refine((p) => !p.endsWith('/') && !(sep === '\\' && p.endsWith('\\')), { message: 'ends in a slash: name a file, not a folder' })
+  .optional();
 
 /** `--jobs N`: worker threads for check and export (0 or 1: this thread only). */
 export const jobsOption = wholeNumberOption(0, 64, 'expected a whole number from 0 to 64').optional();

@@ -23,14 +23,16 @@ export function configProblemLine(shownPath: string, problem: ConfigProblem): st
 
 /**
  * The project files of the notes of a run, each looked for once per folder (for standard input,
- * upward from the working folder, as `NoteWorker.settingsFor` does), and their problems.
+ * upward from the folder of its `--stdin-name` path, else from the working folder, as
+ * `NoteWorker.settingsFor` does), and their problems.
  */
 export class ConfigReport {
   private readonly configs = new ProjectConfigs();
   private readonly folders = new Set<string>();
   private readonly files = new Map<string, readonly ConfigProblem[]>();
 
-  constructor(private readonly cwd: string) {}
+  /** `stdinName`: the `--stdin-name` path of the note read from standard input, whose folder it is looked up from; null when not given. */
+  constructor(private readonly cwd: string, private readonly stdinName: string | null = null) {}
 
   /** Notes as a command lists them: paths relative to the working folder or absolute, or `-`. */
   notes(paths: readonly string[]): this {
@@ -39,7 +41,8 @@ export class ConfigReport {
   }
 
   note(path: string): this {
-    const folder = path === '-' ? this.cwd : dirname(isAbsolute(path) ? path : join(this.cwd, path));
+    const named = path === '-' ? this.stdinName : path;
+    const folder = named === null ? this.cwd : dirname(isAbsolute(named) ? named : join(this.cwd, named));
     if (this.folders.has(folder)) return this;
     this.folders.add(folder);
     const found: FoundConfig | null = this.configs.forPath(join(folder, '-'));

@@ -10,9 +10,9 @@ import { exportColumns, timepointCells } from '../core/export/columns';
 import { anchorProblem, stdinNoteKey, toFhirBundle, type FhirOptions } from '../core/export/fhir';
 import { toJsonl } from '../core/export/jsonl';
 import { wordList } from '../core/util/format';
-import { excludeOption, EXIT, HELP, jobsOption, parse, UsageError, validate, wholeNumberOption, type Io } from './args';
+import { excludeOption, EXIT, HELP, jobsOption, parse, stdinNameOption, UsageError, validate, wholeNumberOption, type Io } from './args';
 import { ConfigReport, reportConfigProblems } from './config-report';
-import { listInputs, STDIN_NAME } from './inputs';
+import { listInputs, shownFilePath, STDIN_NAME } from './inputs';
 import { Output } from './output';
 import { visible } from './visible';
 import { gather } from './pool';
@@ -43,6 +43,7 @@ const exportOptions = z.object({
   exclude: excludeOption,
   jobs: jobsOption,
   progress: z.boolean().default(true),
+  stdinName: stdinNameOption,
 });
 
 type ExportTask = Parameters<ExportRenderer>[2];
@@ -95,15 +96,16 @@ export function bundleText(payload: unknown): string | null {
 export async function runExport(args: readonly string[], io: Io): Promise<number> {
   const { positionals, values } = parse(args, {
     format: { type: 'string' }, redact: { type: 'boolean' }, 'spreadsheet-safe': { type: 'boolean' }, 'shift-days': { type: 'string' }, anchor: { type: 'string' },
-    exclude: { type: 'string', multiple: true }, jobs: { type: 'string' }, 'no-progress': { type: 'boolean' },
+    exclude: { type: 'string', multiple: true }, jobs: { type: 'string' }, 'no-progress': { type: 'boolean' }, 'stdin-name': { type: 'string' },
   });
   if (values.help) { io.stdout.write(`${HELP.export}\n`); return EXIT.ok; }
-  const opts = validate(exportOptions, { format: values.format, redact: values.redact, spreadsheetSafe: values['spreadsheet-safe'], shiftDays: values['shift-days'], anchor: values.anchor ?? null, exclude: values.exclude, jobs: values.jobs, progress: !values['no-progress'] }, { progress: '--no-progress' });
+  const opts = validate(exportOptions, { format: values.format, redact: values.redact, spreadsheetSafe: values['spreadsheet-safe'], shiftDays: values['shift-days'], anchor: values.anchor ?? null, exclude: values.exclude, jobs: values.jobs, progress: !values['no-progress'], stdinName: values['stdin-name'] }, { progress: '--no-progress' });
   if (opts.anchor && opts.format !== 'fhir') throw new UsageError('--anchor only applies to --format fhir');
   if (opts.spreadsheetSafe && opts.format !== 'csv') throw new UsageError('--spreadsheet-safe only applies to --format csv (JSON Lines and FHIR keep text exact)');
   if (positionals.length === 0) throw new UsageError('export needs at least one file, folder, pattern or - (stdin)');
-  const { files, problems } = listInputs(positionals, io.cwd, opts.exclude);
-  const configs = new ConfigReport(io.cwd).notes(files);
+  const stdinName = opts.stdinName === undefined ? null : shownFilePath(opts.stdinName, io.cwd);
+  const { files, problems } = listInputs(positionals, io.cwd, opts.exclude, stdinName);
+  const configs = new ConfigReport(io.cwd, stdinName).notes(files);
   const task: ExportTask = { kind: 'export', format: opts.format, redactProse: opts.redact, shiftDays: opts.shiftDays ?? 0, anchor: opts.anchor, spreadsheetSafe: opts.spreadsheetSafe };
   // Each note's piece is written as soon as it and the notes before it are in, then let go: an
   // export of a big folder is larger than one string can hold, and need not sit in memory.
@@ -115,16 +117,21 @@ export async function runExport(args: readonly string[], io: Io): Promise<number
     if (opts.format === 'csv') {
       if (typeof payload === 'string') output.write(payload);
     } else if (opts.format === 'jsonl') {
-      if (typeof payload === 'string' && payload.length > 0) output.write(payload.endsWith('\n') ? payload : `${payload}\n`);
+      if (typeof payload === 'string' && payload.length > 0) {
+        output.write(payload);
+        if (!payload.endsWith('\n')) output.write('\n');
+      }
     } else if (typeof payload === 'string') {
-      output.write(`${bundles++ === 0 ? '' : ',\n'}${payload}`);
+      // Apart: the two together would be copied into one string as long as the bundle.
+      if (bundles++ > 0) output.write(',\n');
+      output.write(payload);
     } else if (payload === null && r.problem === null) {
       return TOO_BIG_BUNDLE;
     }
     return r.problem;
   };
   output.write(opts.format === 'csv' ? csvHeader(exportColumns(), { spreadsheetSafe: opts.spreadsheetSafe }) : opts.format === 'fhir' ? '[\n' : '');
-  const reports = await gather(files, task, io, new NoteWorker(io.cwd, {}, exportRenderer), opts.progress && !io.stdout.isTTY, 'exporting', opts.jobs, {
+  const reports = await gather(files, task, io, new NoteWorker(io.cwd, {}, exportRenderer, stdinName), opts.progress && !io.stdout.isTTY, 'exporting', opts.jobs, {
     inOrder: (r) => written(r, write(r)),
     ready: () => output.ready(),
   });

@@ -14,8 +14,8 @@ import { z } from 'zod';
 import { checkNote } from '../core/check-note';
 import { formatNote } from '../core/service/format';
 import { NotRegularFile, readSnapshot, writeIfUnchanged, type BeforeRename } from '../node/atomic-write';
-import { binaryProblem, listInputs, looksBinary, MAX_NOTE_BYTES, readNote, readProblem, utf8Problem } from './inputs';
-import { excludeOption, EXIT, HELP, parse, UsageError, validate, type Io } from './args';
+import { binaryProblem, listInputs, looksBinary, MAX_NOTE_BYTES, readNote, readProblem, shownFilePath, utf8Problem } from './inputs';
+import { excludeOption, EXIT, HELP, parse, stdinNameOption, UsageError, validate, type Io } from './args';
 import { visible } from './visible';
 
 const fmtOptions = z.object({
@@ -23,6 +23,7 @@ const fmtOptions = z.object({
   write: z.boolean().default(false),
   force: z.boolean().default(false),
   exclude: excludeOption,
+  stdinName: stdinNameOption,
 }).refine((o) => !(o.check && o.write), { message: 'use either --check or --write, not both', path: ['check'] })
   // --force lets --write rewrite notes with syntax errors; elsewhere it would be silently ignored.
   .refine((o) => !o.force || o.write, { message: 'only applies to --write (it lets --write rewrite notes with syntax errors)', path: ['force'] });
@@ -33,11 +34,12 @@ const NOT_REGULAR = 'is not a regular file (a device, pipe or socket); fmt --che
 export const fmtHooks: { beforeRename: BeforeRename | undefined } = { beforeRename: undefined };
 
 export function runFmt(args: readonly string[], io: Io): number {
-  const { positionals, values } = parse(args, { check: { type: 'boolean' }, write: { type: 'boolean' }, force: { type: 'boolean' }, exclude: { type: 'string', multiple: true } });
+  const { positionals, values } = parse(args, { check: { type: 'boolean' }, write: { type: 'boolean' }, force: { type: 'boolean' }, exclude: { type: 'string', multiple: true }, 'stdin-name': { type: 'string' } });
   if (values.help) { io.stdout.write(`${HELP.fmt}\n`); return EXIT.ok; }
-  const opts = validate(fmtOptions, { check: values.check, write: values.write, force: values.force, exclude: values.exclude });
+  const opts = validate(fmtOptions, { check: values.check, write: values.write, force: values.force, exclude: values.exclude, stdinName: values['stdin-name'] });
   if (positionals.length === 0) throw new UsageError('fmt needs at least one file, folder, pattern or - (stdin)');
-  const { files, problems } = listInputs(positionals, io.cwd, opts.exclude);
+  const stdinName = opts.stdinName === undefined ? null : shownFilePath(opts.stdinName, io.cwd);
+  const { files, problems } = listInputs(positionals, io.cwd, opts.exclude, stdinName);
   for (const p of problems) io.stderr.write(`pneumark: ${visible(p.path)}: ${p.problem}\n`);
 
   if (!opts.check && !opts.write) {
@@ -46,7 +48,7 @@ export function runFmt(args: readonly string[], io: Io): number {
     }
     // A missing, unreadable or empty input has had its line above; there is nothing to print.
     if (problems.length > 0 || files.length === 0) return EXIT.usage;
-    const note = readNote(files[0]!, io.cwd, io.stdin, { keepBom: true });
+    const note = readNote(files[0]!, io.cwd, io.stdin, { keepBom: true, stdinName });
     if (note.text === null) {
       io.stderr.write(`pneumark: ${visible(note.path)}: ${note.problem}\n`);
       return EXIT.usage;

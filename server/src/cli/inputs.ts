@@ -19,10 +19,28 @@ import { basename, dirname, isAbsolute, join, normalize, relative, resolve, sep 
 import ignore, { type Ignore } from 'ignore';
 import { globSync, isDynamicPattern, type FileSystemAdapter } from 'tinyglobby';
 import { CONFIG_FILE_NAME } from '../core/config';
-import { globstarsIn, MAX_GLOBSTARS, refuseEmptyPaths } from './args';
+import { globstarsIn, MAX_GLOBSTARS, refuseEmptyPaths, UsageError } from './args';
 
-/** How a note read from standard input (`-`) is named in output. */
+/** How a note read from standard input (`-`) is named in output, unless `--stdin-name` names it. */
 export const STDIN_NAME = '<stdin>';
+
+/**
+ * How output names the note at `path` as a command lists it: `-` (standard input) by the path
+ * `--stdin-name` gave (`stdinName`, as `shownFilePath` writes it), else as `<stdin>`; any other
+ * path as it is.
+ */
+export function shownPath(path: string, stdinName: string | null): string {
+  return path === '-' ? stdinName ?? STDIN_NAME : path;
+}
+
+/**
+ * A file named on the command line as output names it: relative to the working folder (forward
+ * slashes, `./` and `a/../` left out), also when it was named by its absolute path, unless that is
+ * the working folder itself.
+ */
+export function shownFilePath(arg: string, cwd: string): string {
+  return isAbsolute(arg) ? toPosix(relative(cwd, resolve(cwd, arg))) || toPosix(resolve(cwd, arg)) : toPosix(normalize(arg));
+}
 
 /** Test hook: lists a folder in place of `fs.readdirSync` (a folder root cannot be kept out of otherwise). */
 export const inputHooks: { readdirSync: ((path: string, options: { withFileTypes: true }) => unknown) | undefined } = { readdirSync: undefined };
@@ -32,7 +50,7 @@ export const NOTE_EXTENSION = '.pneu';
 export const IGNORE_FILE = '.pneuignore';
 
 export interface NoteInput {
-  /** As shown to the user: relative to the working directory, or `<stdin>`. */
+  /** As shown to the user: relative to the working directory, or `<stdin>` (the `--stdin-name` path when given). */
   readonly path: string;
   readonly text: string | null;
   /** Why the note could not be read, when it could not. */
@@ -59,8 +77,16 @@ interface ArgumentYield {
 
 type ExclusionSource = '--exclude' | typeof IGNORE_FILE;
 
-export function listInputs(args: readonly string[], cwd: string, exclude: readonly string[] = []): InputList {
+/**
+ * The notes `args` name, sorted, minus what the exclusions leave out. `stdinName` (`--stdin-name`,
+ * as `shownFilePath` writes it) names the note read from standard input: `-` then takes the place
+ * of a file of that name among the others (its place in the run names it in a redacted export),
+ * where it otherwise comes last. Naming it without `-` among `args`, or naming a note that is
+ * among the inputs too, is a usage error.
+ */
+export function listInputs(args: readonly string[], cwd: string, exclude: readonly string[] = [], stdinName: string | null = null): InputList {
   refuseEmptyPaths(args);
+  if (stdinName !== null && !args.includes('-')) throw new UsageError('--stdin-name names the note read from standard input, and - is not among the inputs; add - or leave --stdin-name out');
   const problems: NoteInput[] = [];
   /** Each path found, with the arguments that brought it in (the first decides its root). */
   const found = new Map<string, ArgumentYield[]>();
@@ -115,7 +141,7 @@ export function listInputs(args: readonly string[], cwd: string, exclude: readon
     } else {
       const from: ArgumentYield = { arg, kind: 'file', root: dirname(abs), found: 0, excludedBy: new Set() };
       yields.push(from);
-      add(isAbsolute(arg) ? toPosix(relative(cwd, abs)) || toPosix(abs) : toPosix(normalize(arg)), from);
+      add(shownFilePath(arg, cwd), from);
     }
   }
   const ignoreFiles = new IgnoreFiles(cwd);
@@ -142,7 +168,13 @@ export function listInputs(args: readonly string[], cwd: string, exclude: readon
     // Nothing to read, and nothing said so far: a CI job pointed at the wrong folder must not pass.
     for (const from of yields) problems.push({ path: from.arg, text: null, problem: nothingFound(from) });
   }
-  if (stdin) files.push('-');
+  if (stdin && stdinName !== null) {
+    // Among the others by its name, as the file would be.
+    if (files.includes(stdinName)) throw new UsageError(`--stdin-name ${stdinName} names a note that is among the inputs too; each note is read once: leave out one of the two`);
+    let at = 0;
+    while (at < files.length && comparePaths(files[at]!, stdinName) < 0) at++;
+    files.splice(at, 0, '-');
+  } else if (stdin) files.push('-');
   return { files, problems };
 }
 
@@ -598,7 +630,7 @@ function isFile(path: string): boolean {
 
 /** A note's bytes as read, before they are decoded: `bytes` null when they could not be read (`problem` says why). */
 export interface NoteBytes {
-  /** As shown to the user: relative to the working directory, or `<stdin>`. */
+  /** As shown to the user: relative to the working directory, or `<stdin>` (the `--stdin-name` path when given). */
   readonly path: string;
   readonly bytes: Buffer | null;
   readonly problem: string | null;
@@ -609,18 +641,19 @@ export interface NoteBytes {
  * unless `keepBom`): a note in another encoding gets a problem rather than text with replacement
  * characters, which would be checked, exported or formatted as something it does not say.
  */
-export function readNote(path: string, cwd: string, stdin: () => Buffer, options: { readonly keepBom?: boolean } = {}): NoteInput {
-  return noteFromBytes(readNoteBytes(path, cwd, stdin), options);
+export function readNote(path: string, cwd: string, stdin: () => Buffer, options: { readonly keepBom?: boolean; readonly stdinName?: string | null } = {}): NoteInput {
+  return noteFromBytes(readNoteBytes(path, cwd, stdin, options.stdinName ?? null), options);
 }
 
 /**
  * The bytes of a note (`-`: standard input), or why they cannot be read: missing, a folder, over
  * MAX_NOTE_BYTES. The CLI reads them first to learn a note's size (a big note is analysed in a
  * worker thread of its own: see analyse-alone.ts), then decodes them with `noteFromBytes`.
+ * `stdinName`: what names standard input (`--stdin-name`; see `shownPath`).
  */
-export function readNoteBytes(path: string, cwd: string, stdin: () => Buffer): NoteBytes {
+export function readNoteBytes(path: string, cwd: string, stdin: () => Buffer, stdinName: string | null = null): NoteBytes {
   let bytes: Buffer;
-  const shown = path === '-' ? STDIN_NAME : path;
+  const shown = shownPath(path, stdinName);
   try {
     if (path === '-') bytes = stdin();
     else {

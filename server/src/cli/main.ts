@@ -10,7 +10,7 @@ import { resolve } from 'node:path';
 import { isMainThread, parentPort, workerData } from 'node:worker_threads';
 import { z } from 'zod';
 import { checkNote } from '../core/check-note';
-import { CAUTION, excludeOption, EXIT, HELP, jobsOption, parse, refuseEmptyPaths, UsageError, validate, wholeNumberOption, type Io } from './args';
+import { CAUTION, excludeOption, EXIT, HELP, jobsOption, parse, refuseEmptyPaths, stdinNameOption, UsageError, validate, wholeNumberOption, type Io } from './args';
 import { ConfigReport, reportConfigProblems } from './config-report';
 import { renderCheckDocs } from '../core/checks/docs';
 import { replaceBetween, withGeneratedTables } from '../core/fields/docs';
@@ -19,7 +19,7 @@ import { renderSettingsTable, SETTINGS_END, SETTINGS_START } from '../core/setti
 import { colourWanted, paint, type Paint } from './colour';
 import { runExport, exportRenderer } from './export-command';
 import { runFmt } from './fmt-command';
-import { isBlankNote, listInputs, MAX_NOTE_BYTES, NO_NOTE, readNote, readUpTo, STDIN_NAME } from './inputs';
+import { isBlankNote, listInputs, MAX_NOTE_BYTES, NO_NOTE, readNote, readUpTo, shownFilePath } from './inputs';
 import { aloneLimits } from './analyse-alone';
 import { gather, type BatchDone, type WorkDone, type WorkItem } from './pool';
 import { CheckJsonWriter, countOutcome, jsonFileEntryOrProblem, writeCheckSarif, writeCheckText, type FileOutcome } from './render-check';
@@ -101,16 +101,18 @@ const checkOptions = z.object({
   exclude: excludeOption,
   jobs: jobsOption,
   progress: z.boolean().default(true),
+  stdinName: stdinNameOption,
 });
 
 async function check(args: readonly string[], io: Io): Promise<number> {
-  const { positionals, values } = parse(args, { format: { type: 'string' }, quiet: { type: 'boolean' }, 'max-warnings': { type: 'string' }, exclude: { type: 'string', multiple: true }, jobs: { type: 'string' }, 'no-progress': { type: 'boolean' } });
+  const { positionals, values } = parse(args, { format: { type: 'string' }, quiet: { type: 'boolean' }, 'max-warnings': { type: 'string' }, exclude: { type: 'string', multiple: true }, jobs: { type: 'string' }, 'no-progress': { type: 'boolean' }, 'stdin-name': { type: 'string' } });
   if (values.help) { io.stdout.write(`${HELP.check}\n`); return EXIT.ok; }
-  const opts = validate(checkOptions, { format: values.format, quiet: values.quiet, maxWarnings: values['max-warnings'], exclude: values.exclude, jobs: values.jobs, progress: !values['no-progress'] }, { progress: '--no-progress' });
+  const opts = validate(checkOptions, { format: values.format, quiet: values.quiet, maxWarnings: values['max-warnings'], exclude: values.exclude, jobs: values.jobs, progress: !values['no-progress'], stdinName: values['stdin-name'] }, { progress: '--no-progress' });
   if (positionals.length === 0) throw new UsageError('check needs at least one file, folder, pattern or - (stdin)');
-  const { files, problems } = listInputs(positionals, io.cwd, opts.exclude);
-  const configs = new ConfigReport(io.cwd).notes(files);
-  const worker = new NoteWorker(io.cwd, {});
+  const stdinName = opts.stdinName === undefined ? null : shownFilePath(opts.stdinName, io.cwd);
+  const { files, problems } = listInputs(positionals, io.cwd, opts.exclude, stdinName);
+  const configs = new ConfigReport(io.cwd, stdinName).notes(files);
+  const worker = new NoteWorker(io.cwd, {}, null, stdinName);
   const unread: FileOutcome[] = problems.map((p) => ({ path: p.path, findings: [], problem: p.problem }));
   // JSON (with every timepoint) is written a note at a time as the notes come in, in their order,
   // and each note's timepoints are let go once written.
@@ -204,12 +206,12 @@ function writeText(path: string, shown: string, text: string, option: string): v
  * analysed in a worker of its own (analyse-alone.ts), which is this same code with `aloneFrom` null.
  */
 function workerMain(): void {
-  const data = workerData as { cwd: string; overrides: object; task: Task; aloneFrom: number | null };
-  const worker = new NoteWorker(data.cwd, data.overrides, exportRenderer);
+  const data = workerData as { cwd: string; overrides: object; task: Task; aloneFrom: number | null; stdinName: string | null };
+  const worker = new NoteWorker(data.cwd, data.overrides, exportRenderer, data.stdinName);
   // JSON output: the worker writes out each note's entry (see jsonFileEntry).
   const withEntry = (r: FileReport): FileReport => {
-    if (r.timepoints === undefined) return r;
-    const { timepoints: _inEntry, ...rest } = r;
+    if (r.timepoints === undefined && r.timepointTexts === undefined) return r;
+    const { timepoints: _inEntry, timepointTexts: _written, ...rest } = r;
     const { entry, problem } = jsonFileEntryOrProblem(r, data.task.kind === 'check' && data.task.errorsOnly === true);
     return { ...rest, entry, problem };
   };
@@ -220,11 +222,11 @@ function workerMain(): void {
       try {
         // Bytes sent along (standard input, or a big note the main thread has read) stand for the note.
         const bytes = m.bytes;
-        const read = bytes === undefined ? worker.read(m.f, noStdin) : { path: m.f === '-' ? STDIN_NAME : m.f, bytes: Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength), problem: null };
+        const read = bytes === undefined ? worker.read(m.f, noStdin) : { path: worker.shown(m.f), bytes: Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength), problem: null };
         if (data.aloneFrom !== null && read.bytes !== null && read.bytes.length > data.aloneFrom) return { i: m.i, report: null };
         return { i: m.i, report: packReport(withEntry(worker.analyse(m.f, read, data.task, m.i + 1))) };
       } catch (error) {
-        return { i: m.i, report: packReport({ path: m.f === '-' ? STDIN_NAME : m.f, problem: `could not be analysed (${error instanceof Error ? error.message : String(error)})`, findings: [] }) };
+        return { i: m.i, report: packReport({ path: worker.shown(m.f), problem: `could not be analysed (${error instanceof Error ? error.message : String(error)})`, findings: [] }) };
       }
     });
     const answer: BatchDone = { done, millis: performance.now() - started };

@@ -152,7 +152,7 @@ export async function runAll(files: readonly string[], task: Task, local: NoteWo
   const { reports, finish, mayRead } = handover(files.length, options);
   const alone = canUseWorkers() ? options.alone ?? null : null;
   const parallel = options.workers > 1 && canUseWorkers();
-  const aloneOptions = { cwd: options.cwd, overrides: options.overrides, heapMb: alone?.heapMb ?? 0 };
+  const aloneOptions = { cwd: options.cwd, overrides: options.overrides, heapMb: alone?.heapMb ?? 0, stdinName: local.stdinName };
   /** A note read and analysed in this thread, or, when it is big, read here and analysed alone. */
   const here = async (f: string, i: number): Promise<FileReport> => {
     const read = local.read(f, stdin);
@@ -193,7 +193,7 @@ export async function runAll(files: readonly string[], task: Task, local: NoteWo
    * worker takes its place. One that dies with nothing sent (it could not start) fails the run.
    */
   const startWorker = (): Promise<void> => new Promise<void>((resolve, reject) => {
-    const worker = new Worker(__filename, { workerData: { pneumarkWorker: true, cwd: options.cwd, overrides: options.overrides, task, aloneFrom: alone?.fromBytes ?? null } });
+    const worker = new Worker(__filename, { workerData: { pneumarkWorker: true, cwd: options.cwd, overrides: options.overrides, task, aloneFrom: alone?.fromBytes ?? null, stdinName: local.stdinName } });
     /** Batches sent and not answered yet, in the order sent (the worker answers them in that order). */
     const unanswered: WorkItem[][] = [];
     let closing = false;

@@ -3,6 +3,7 @@
  * JSON: the stable shape documented in README.md ("JSON output"), version 1. SARIF 2.1.0. All
  * three are written in pieces (a big folder's output is larger than one string can hold).
  */
+import { constants } from 'node:buffer';
 import { sep } from 'node:path';
 import { CHECKS } from '../core/checks/registry';
 import { sarifLogParts, type SarifConfigurationProblem } from '../core/export/sarif';
@@ -18,6 +19,12 @@ export interface FileOutcome {
   readonly problem: string | null;
   /** Timepoints with values and derived values (JSON output only). */
   readonly timepoints?: unknown[];
+  /**
+   * The same, each already written as it is nested in the note's entry (`timepointText`): what
+   * the CLI keeps of a note's timepoints, a string each rather than the objects they were
+   * written from. Used in place of `timepoints` when given.
+   */
+  readonly timepointTexts?: readonly string[];
   /** The note's entry in the JSON output, already written out (by a worker: see `jsonFileEntry`). */
   readonly entry?: string;
   /** Every finding of the note by severity, when `findings` keeps only the errors (`--quiet`). */
@@ -45,6 +52,17 @@ export interface Sink {
 
 /** Pieces of output gathered up to this many characters before they are written. */
 const PIECE = 1 << 20;
+
+/**
+ * Parts of a JSON entry gathered up to this many characters before they are written. Writing
+ * makes the gathered parts into one string first, which V8 makes in its large-object space (a
+ * block of memory of its own, fresh pages) once it is over 128 KB, 64 K characters of text with
+ * any character outside Latin-1: gathering megabytes cost more than the JSON itself.
+ */
+const GATHER = 1 << 15;
+
+/** The most characters one string holds (V8's limit). */
+const MAX_STRING_LENGTH = constants.MAX_STRING_LENGTH;
 
 /** Output gathered into pieces of about a megabyte, each written to the sink once full. */
 class Pieces {
@@ -144,12 +162,24 @@ export class CheckJsonWriter {
     out.write('{\n  "pneumark": 1,\n  "files": [');
   }
 
-  /** Writes a note's entry; returns the note's problem (see `jsonFileEntryOrProblem`). */
+  /**
+   * Writes a note's entry; returns the note's problem (see `jsonFileEntryOrProblem`). An entry
+   * made here is never made into one string (the entry of a note of thousands of timepoints is
+   * tens of megabytes): its parts are written as they are, gathered up to `GATHER` characters.
+   */
   file(o: FileOutcome): string | null {
     countOutcome(o, this.total);
-    const { entry, problem } = o.entry !== undefined ? { entry: o.entry, problem: o.problem } : jsonFileEntryOrProblem(o, this.errorsOnly);
+    const { parts, problem } = o.entry !== undefined ? { parts: [o.entry], problem: o.problem } : jsonFileEntryPartsOrProblem(o, this.errorsOnly);
     if (problem) this.unreadable++;
-    this.out.write(`${this.files++ === 0 ? '' : ','}\n    ${entry}`);
+    let piece = `${this.files++ === 0 ? '' : ','}\n    `;
+    for (const part of parts) {
+      if (piece.length > 0 && piece.length + part.length > GATHER) {
+        this.out.write(piece);
+        piece = '';
+      }
+      piece += part;
+    }
+    this.out.write(piece);
     return problem;
   }
 
@@ -167,13 +197,40 @@ export class CheckJsonWriter {
  * timepoints as objects would be cloned one by one.
  */
 export function jsonFileEntry(o: FileOutcome, errorsOnly = false): string {
-  const file = {
-    path: o.path,
-    problem: o.problem,
-    findings: (errorsOnly ? o.findings.filter((f) => f.severity === 'error') : o.findings).map(toJsonFinding),
-    ...(o.timepoints ? { timepoints: o.timepoints } : {}),
-  };
-  return nested(file, '    ');
+  return jsonFileEntryParts(o, errorsOnly).join('');
+}
+
+/** The list of timepoints that ends an entry with timepoints, as written before they are put in. */
+const NO_TIMEPOINTS = '"timepoints": []';
+
+/**
+ * `jsonFileEntry`'s text in parts, which joined are that text: the entry with an empty list of
+ * timepoints cut before its end, then each timepoint as nested there, then the end. A timepoint at
+ * a time: one string of tens of megabytes, and a split of it into a list of a million lines to
+ * indent them, cost seconds on a note of thousands of timepoints, where the pieces stay small.
+ * Throws a RangeError when the whole would be more than one string holds, as the whole would.
+ */
+function jsonFileEntryParts(o: FileOutcome, errorsOnly: boolean): string[] {
+  const findings = (errorsOnly ? o.findings.filter((f) => f.severity === 'error') : o.findings).map(toJsonFinding);
+  const texts = o.timepointTexts;
+  const timepoints = texts ?? o.timepoints;
+  if (timepoints === undefined) return [nested({ path: o.path, problem: o.problem, findings }, '    ')];
+  // `timepoints` is the last member: its empty list is the last one in the text.
+  const whole = nested({ path: o.path, problem: o.problem, findings, timepoints: [] }, '    ');
+  if (timepoints.length === 0) return [whole];
+  const at = whole.lastIndexOf(NO_TIMEPOINTS);
+  const parts: string[] = [`${whole.slice(0, at)}"timepoints": [`];
+  let length = parts[0]!.length;
+  for (let i = 0; i < timepoints.length; i++) {
+    const part = `${i === 0 ? '' : ','}\n        ${texts === undefined ? timepointText(timepoints[i]) : texts[i]!}`;
+    parts.push(part);
+    length += part.length;
+  }
+  const end = `\n      ]${whole.slice(at + NO_TIMEPOINTS.length)}`;
+  parts.push(end);
+  length += end.length;
+  if (length > MAX_STRING_LENGTH) throw new RangeError('Invalid string length');
+  return parts;
 }
 
 /** Why a note's JSON entry leaves out its timepoints, when they make more JSON than one string can hold. */
@@ -189,24 +246,47 @@ export const TOO_MANY_FINDINGS = 'its findings make more JSON than one string ca
  * much (a note of a million bare timepoints has a finding on each), its entry without either.
  */
 export function jsonFileEntryOrProblem(o: FileOutcome, errorsOnly = false): { readonly entry: string; readonly problem: string | null } {
+  const { parts, problem } = jsonFileEntryPartsOrProblem(o, errorsOnly);
+  return { entry: parts.join(''), problem };
+}
+
+/** `jsonFileEntryOrProblem` with the entry in parts (see `jsonFileEntryParts`). */
+function jsonFileEntryPartsOrProblem(o: FileOutcome, errorsOnly: boolean): { readonly parts: readonly string[]; readonly problem: string | null } {
   try {
-    return { entry: jsonFileEntry(o, errorsOnly), problem: o.problem };
+    return { parts: jsonFileEntryParts(o, errorsOnly), problem: o.problem };
   } catch (error) {
     if (!(error instanceof RangeError)) throw error;
   }
-  if (o.timepoints) {
+  if (o.timepoints || o.timepointTexts) {
     try {
-      return { entry: jsonFileEntry({ path: o.path, findings: o.findings, problem: TOO_MUCH_JSON }, errorsOnly), problem: TOO_MUCH_JSON };
+      return { parts: jsonFileEntryParts({ path: o.path, findings: o.findings, problem: TOO_MUCH_JSON }, errorsOnly), problem: TOO_MUCH_JSON };
     } catch (error) {
       if (!(error instanceof RangeError)) throw error;
     }
   }
-  return { entry: jsonFileEntry({ path: o.path, findings: [], problem: TOO_MANY_FINDINGS }, errorsOnly), problem: TOO_MANY_FINDINGS };
+  return { parts: jsonFileEntryParts({ path: o.path, findings: [], problem: TOO_MANY_FINDINGS }, errorsOnly), problem: TOO_MANY_FINDINGS };
 }
 
-/** A value as `JSON.stringify(…, null, 2)` writes it nested at `indent` (line breaks only come from the layout). */
+/** A timepoint's JSON (see `timepointsJson`) as it is nested in its note's entry, in the list of timepoints. */
+export function timepointText(timepoint: unknown): string {
+  return nested(timepoint, '        ');
+}
+
+/**
+ * A value as `JSON.stringify(…, null, 2)` writes it nested at `indent` (spaces, two per level):
+ * its first line as it is, each further line after `indent`. Written by `JSON.stringify` itself
+ * with the value inside one list per level, whose brackets are then cut off: the same text as
+ * indenting each line of the value's JSON (line breaks only come from the layout), without
+ * splitting tens of megabytes of JSON into lines and joining them again.
+ */
 function nested(value: unknown, indent: string): string {
-  return JSON.stringify(value, null, 2).split('\n').join(`\n${indent}`);
+  const levels = indent.length / 2;
+  let wrapped: unknown = value;
+  for (let k = 0; k < levels; k++) wrapped = [wrapped];
+  const json = JSON.stringify(wrapped, null, 2);
+  // Before the value, per level k (from 0): `[`, a line break and 2 (k + 1) spaces; after it, per
+  // level k: a line break, 2 k spaces and `]`.
+  return json.slice(levels * (levels + 3), json.length - levels * (levels + 1));
 }
 
 export function renderCheckJson(outcomes: readonly FileOutcome[]): string {

@@ -41,11 +41,15 @@ export interface JsonOrigin {
   readonly derived?: string;
 }
 
-export function timepointsJson(result: NoteResult): unknown[] {
+/** Each timepoint of the note as JSON; with `written`, each as `written` makes it of its JSON (then let go). */
+export function timepointsJson(result: NoteResult): unknown[];
+export function timepointsJson<T>(result: NoteResult, written: (json: unknown) => T): T[];
+export function timepointsJson(result: NoteResult, written?: (json: unknown) => unknown): unknown[] {
   const lines = result.analysis.tree.lines;
   return result.analysis.timeline.timepoints.map((tp) => {
     const node = tp.line === null ? undefined : lines[tp.line];
-    return timepointJson(tp, result.analysis.derivation(tp.index), node?.kind === 'timepoint' ? node.label?.text ?? null : null);
+    const json = timepointJson(tp, result.analysis.derivation(tp.index), node?.kind === 'timepoint' ? node.label?.text ?? null : null);
+    return written === undefined ? json : written(json);
   });
 }
 

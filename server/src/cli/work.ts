@@ -10,8 +10,9 @@ import type { Finding, Severity } from '../core/types';
 import { notePseudonym } from '../core/export/pseudonym';
 import { NONE } from '../core/util/lists';
 import { ProjectConfigs } from '../node/project-config';
-import { isBlankNote, noteFromBytes, NO_NOTE, readNoteBytes, type NoteBytes, type NoteInput } from './inputs';
+import { isBlankNote, noteFromBytes, NO_NOTE, readNoteBytes, shownPath, type NoteBytes, type NoteInput } from './inputs';
 import { countSeverities, type SeverityCounts } from './render-show';
+import { timepointText } from './render-check';
 import { timepointsJson } from './timepoints-json';
 
 export type Task =
@@ -30,6 +31,8 @@ export interface FileReport {
   readonly counts?: SeverityCounts;
   /** `check --format json`: the timepoints with values, derived values and readings. */
   readonly timepoints?: unknown[];
+  /** `check --format json`: the same, each written as nested in the note's entry (what `analyse` gives). */
+  readonly timepointTexts?: readonly string[];
   /** `check --format json` in a worker: the note's entry in the output, written out (the timepoints left out above). */
   readonly entry?: string;
   /** `export`: what the format needs for this note (rows, lines or a bundle). */
@@ -45,20 +48,27 @@ export class NoteWorker {
   /** The settings of the notes of each folder seen so far. */
   private readonly settings = new Map<string, Partial<Settings>>();
 
+  /**
+   * `stdinName`: the path `--stdin-name` gave the note read from standard input (as
+   * `shownFilePath` writes it), which names it in output and says where it lives; null when not given.
+   */
   constructor(
     private readonly cwd: string,
     private readonly overrides: Partial<Settings>,
     private readonly exportRenderer: ExportRenderer | null = null,
+    readonly stdinName: string | null = null,
   ) {}
 
   /**
    * The settings of the project file found upward from the note's folder; for standard input,
-   * upward from the working folder (so `cat note | pneumark check -` reads the note as
-   * `pneumark check note` would there).
+   * upward from the folder of its `--stdin-name` path (the file need not exist), else from the
+   * working folder (so `cat note | pneumark check -` reads the note as `pneumark check note` would
+   * there).
    */
   settingsFor(path: string): Partial<Settings> {
-    // `-` (standard input) stands for a note in the working folder.
-    const abs = isAbsolute(path) ? path : join(this.cwd, path);
+    // `-` (standard input) without a name stands for a note in the working folder.
+    const named = path === '-' && this.stdinName !== null ? this.stdinName : path;
+    const abs = isAbsolute(named) ? named : join(this.cwd, named);
     // Once per folder: a run reads each project file once, and notes of one folder share their
     // settings (looking up a folder that has a project file costs a stat of that file each time).
     const folder = dirname(abs);
@@ -77,7 +87,12 @@ export class NoteWorker {
 
   /** The note's bytes (or why they cannot be read), so a big note can be sent elsewhere before it is analysed. */
   read(path: string, stdin: () => Buffer): NoteBytes {
-    return readNoteBytes(path, this.cwd, stdin);
+    return readNoteBytes(path, this.cwd, stdin, this.stdinName);
+  }
+
+  /** How output names the note at `path` (`-`: standard input, by its `--stdin-name` path when given). */
+  shown(path: string): string {
+    return shownPath(path, this.stdinName);
   }
 
   /**
@@ -92,7 +107,9 @@ export class NoteWorker {
     // An export reads every timepoint's derived values: it finishes the derivations the checks began.
     const result = checkNote(note.text, this.settingsFor(path), task.kind === 'export' ? KEEP_DERIVATIONS : undefined);
     if (task.kind === 'check') {
-      const timepoints = task.timepoints ? { timepoints: timepointsJson(result) } : {};
+      // Each timepoint written out at once: a note of thousands of timepoints keeps a string each
+      // until its entry is written, not the objects they are written from.
+      const timepoints = task.timepoints ? { timepointTexts: timepointsJson(result, timepointText) } : {};
       // `--quiet` shows errors only and counts the rest: only the counts of the others are kept
       // (and cross back from a worker), not a hundred thousand findings of a big folder.
       if (task.errorsOnly) return { path: note.path, problem: null, findings: result.findings.filter((f) => f.severity === 'error'), counts: countSeverities(result.findings), ...timepoints };

@@ -128,7 +128,7 @@ function timepointColumns(): Column[] {
   const meta = (name: string, type: ColumnDef['type'], unit: 'min' | null, description: string, cell: Column['cell']): Column =>
     ({ name, description, unit, ucum: unit, type, kind: 'timepoint', source: null, part: null, section: null, cell });
   return [
-    meta('file', 'string', null, 'Path of the note relative to the working folder (also when it was named by its absolute path), or `<stdin>` for standard input; with `--redact`, the note\'s place in the run instead (`note-00001`, `note-00002` … in the sorted order of the paths, standard input last).', (c) => c.path),
+    meta('file', 'string', null, 'Path of the note relative to the working folder (also when it was named by its absolute path), or for standard input its `--stdin-name` path, else `<stdin>`; with `--redact`, the note\'s place in the run instead (`note-00001`, `note-00002` … in the sorted order of the paths, standard input last, or in the place of its `--stdin-name` path).', (c) => c.path),
     meta('timepoint', 'number', null, 'Index of the timepoint in the note, from 0.', (c) => c.timepoint.index),
     meta('label', 'string', null, 'Label written after the timepoint\'s time; empty when none is written, and with `--redact`.', (c) => (c.options.redactProse ? null : c.label)),
     meta('day', 'number', null, 'Day number of the timepoint (day 1 is the first day), plus `--shift-days`.', (c) => {

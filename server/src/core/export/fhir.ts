@@ -92,7 +92,8 @@
  * elsewhere in the note leaves as it was, while a corrected value (and a P/F made from it) gets a
  * new one. The Bundle's id is made from the note's key alone, or with `bundleIdFromEntries` (a
  * redacted export, whose key is only a place in the run) from the key and every entry's fullUrl.
- * A note read from standard input is named by its text instead of a path (`stdinNoteKey`).
+ * A note read from standard input with no path given for it (the CLI's `--stdin-name`) is named
+ * by its text instead (`stdinNoteKey`).
  */
 import type { NoteResult } from '../check-note';
 import type { InputValue, StatedValue, Timepoint } from '../analysis/model';

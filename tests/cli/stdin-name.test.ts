@@ -1,0 +1,204 @@
+// `--stdin-name PATH` (check, export, fmt): the note read from `-` is reported, exported and keyed
+// under that path, and its pneumark.config.json is looked up from that path's folder, as for a
+// file there (which need not exist). Editors and pipelines pipe a buffer in and say what file it is.
+import { spawnSync } from 'node:child_process';
+import { mkdirSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { HELP } from '../../server/src/cli/args';
+import { run } from '../../server/src/cli/main';
+import { memoryIo } from '../helpers/memory-io';
+
+/** An invented note: PaCO2 5.3 and PaO2 11 with no unit are ordinary in kPa, implausible in mmHg (PN204). */
+const NOTE = '@ day 1 08:00  first look\nabg ph 7.40, paco2 5.3, pao2 11\noxygen fio2 0.4\n@ day 1 12:00\nabg ph 7.38, paco2 5.6, pao2 10.2\nvitals spo2 94 %\n';
+/** An invented note in mmHg, and the same note with one value corrected at its second timepoint (PaO2 76 → 67). */
+const GASES = '@ day 1 08:00  first look\nabg ph 7.40, paco2 40, pao2 80\noxygen fio2 0.4\n@ day 1 12:00\nabg ph 7.38, paco2 42, pao2 76\nvitals spo2 94 %\n';
+const EDITED = GASES.replace('pao2 76', 'pao2 67');
+
+/** A project: `pneumark.config.json` (when given) at its root, a folder `ward` below it, and a folder `elsewhere` beside it. */
+function project(config: string | null): string {
+  const dir = mkdtempSync(join(tmpdir(), 'pneumark-stdin-name-'));
+  mkdirSync(join(dir, 'proj', 'ward'), { recursive: true });
+  mkdirSync(join(dir, 'elsewhere'));
+  if (config !== null) writeFileSync(join(dir, 'proj', 'pneumark.config.json'), config);
+  return dir;
+}
+
+async function cli(args: readonly string[], cwd: string, stdin = ''): Promise<{ code: number; out: string; err: string }> {
+  const io = memoryIo({ cwd, stdin });
+  const code = await run(args, io);
+  return { code, out: io.out(), err: io.err() };
+}
+
+/** The fullUrls of a FHIR export's Observations by resource id, and each Bundle's id. */
+function fhirIds(out: string): { bundles: string[]; observations: Map<string, string> } {
+  const bundles = JSON.parse(out) as { id: string; entry: { fullUrl: string; resource: { id: string } }[] }[];
+  const observations = new Map<string, string>();
+  for (const b of bundles) for (const e of b.entry) observations.set(e.resource.id, e.fullUrl);
+  return { bundles: bundles.map((b) => b.id), observations };
+}
+
+describe('--stdin-name names the note read from standard input', () => {
+  it('check gives the output a file of that path gives, in every format', async () => {
+    const dir = project('{ "gasUnit": "kPa" }');
+    writeFileSync(join(dir, 'proj', 'ward', 'bed 4.pneu'), NOTE);
+    for (const format of ['text', 'json', 'sarif']) {
+      const fromFile = await cli(['check', '--format', format, 'proj/ward/bed 4.pneu'], dir);
+      const fromStdin = await cli(['check', '--format', format, '-', '--stdin-name', 'proj/ward/bed 4.pneu'], dir, NOTE);
+      expect(fromStdin.code, format).toBe(fromFile.code);
+      expect(fromStdin.out, format).toBe(fromFile.out);
+      expect(fromStdin.out, format).not.toContain('<stdin>');
+    }
+  });
+
+  it('names the note in text output and as the SARIF artifact, by a relative URI (the file need not exist)', async () => {
+    const dir = project(null);
+    const text = await cli(['check', '-', '--stdin-name', 'proj/ward/bed 4.pneu'], dir, NOTE);
+    expect(text.out).toMatch(/^proj\/ward\/bed 4\.pneu:2:\d+ {2}warning {2}PN204/);
+    const sarif = JSON.parse((await cli(['check', '--format', 'sarif', '-', '--stdin-name', './proj/ward/bed 4.pneu'], dir, NOTE)).out) as {
+      runs: { artifacts: { location: { uri?: string; uriBaseId?: string; description?: unknown } }[]; results: { locations: { physicalLocation: { artifactLocation: { uri?: string; index: number } } }[] }[] }[];
+    };
+    const run0 = sarif.runs[0]!;
+    expect(run0.artifacts.map((a) => a.location)).toEqual([{ uri: 'proj/ward/bed%204.pneu', uriBaseId: 'SRCROOT' }]);
+    expect(run0.results.length).toBeGreaterThan(0);
+    for (const r of run0.results) expect(r.locations[0]!.physicalLocation.artifactLocation.uri).toBe('proj/ward/bed%204.pneu');
+    // An absolute path is shown relative to the working folder, as a file named so is.
+    const json = JSON.parse((await cli(['check', '--format', 'json', '-', '--stdin-name', join(dir, 'proj/ward/../ward/bed 4.pneu')], dir, NOTE)).out) as { files: { path: string }[] };
+    expect(json.files.map((f) => f.path)).toEqual(['proj/ward/bed 4.pneu']);
+  });
+
+  it('export: the file column of CSV and JSON Lines is that path', async () => {
+    const dir = project(null);
+    const csv = await cli(['export', '--format', 'csv', '-', '--stdin-name', 'proj/ward/b.pneu'], dir, NOTE);
+    expect(csv.out.trim().split('\n').slice(1).map((line) => line.split(',')[0])).toEqual(['proj/ward/b.pneu', 'proj/ward/b.pneu']);
+    const jsonl = await cli(['export', '--format', 'jsonl', '-', '--stdin-name', 'proj/ward/b.pneu'], dir, NOTE);
+    expect(jsonl.out.trim().split('\n').map((line) => (JSON.parse(line) as { file: string }).file)).toEqual(['proj/ward/b.pneu', 'proj/ward/b.pneu']);
+    // Without it, the placeholder, as before.
+    const unnamed = await cli(['export', '--format', 'csv', '-'], dir, NOTE);
+    expect(unnamed.out.trim().split('\n')[1]!.split(',')[0]).toBe('<stdin>');
+  });
+
+  it('FHIR: ids are those of a file of that path, and an edit renames only what it changed', async () => {
+    const dir = project(null);
+    writeFileSync(join(dir, 'proj', 'ward', 'b.pneu'), GASES);
+    const named = ['export', '--format', 'fhir', '-', '--stdin-name', 'proj/ward/b.pneu'];
+    const before = await cli(named, dir, GASES);
+    expect(before.out).toBe((await cli(['export', '--format', 'fhir', 'proj/ward/b.pneu'], dir)).out);
+    const after = fhirIds((await cli(named, dir, EDITED)).out);
+    const ids = fhirIds(before.out);
+    expect(after.bundles).toEqual(ids.bundles);
+    // Everything but the corrected PaO2 and the P/F made from it keeps its fullUrl.
+    const renamed = [...ids.observations].filter(([id, url]) => after.observations.get(id) !== url).map(([id]) => id);
+    expect(renamed.sort()).toEqual(['obs-1-pao2', 'obs-1-pf-ratio']);
+    expect(ids.observations.size).toBe(10);
+    // Unnamed, the note is keyed by its whole text: the same edit renames every Observation.
+    const plain = fhirIds((await cli(['export', '--format', 'fhir', '-'], dir, GASES)).out);
+    const plainEdited = fhirIds((await cli(['export', '--format', 'fhir', '-'], dir, EDITED)).out);
+    expect(plain.observations.get('obs-0-pao2')).not.toBe(plainEdited.observations.get('obs-0-pao2'));
+    // Another name, other ids.
+    const other = fhirIds((await cli(['export', '--format', 'fhir', '-', '--stdin-name', 'proj/ward/c.pneu'], dir, GASES)).out);
+    expect(other.observations.get('obs-0-pao2')).not.toBe(ids.observations.get('obs-0-pao2'));
+    expect(other.bundles).not.toEqual(ids.bundles);
+  });
+
+  it('--redact: the note takes the place in the run (and so the pseudonym) of a file of that name', async () => {
+    const dir = project(null);
+    const notes = ['@ 08:00\nvitals spo2 91\n', NOTE, '@ 09:00\nvitals hr 80\n'];
+    ['a.pneu', 'b.pneu', 'c.pneu'].forEach((name, i) => writeFileSync(join(dir, 'proj', 'ward', name), notes[i]!));
+    const whole = await cli(['export', '--format', 'fhir', '--redact', 'proj/ward'], dir);
+    const elsewhere = join(dir, 'elsewhere');
+    writeFileSync(join(elsewhere, 'a.pneu'), notes[0]!);
+    writeFileSync(join(elsewhere, 'c.pneu'), notes[2]!);
+    for (const format of ['fhir', 'csv', 'jsonl']) {
+      const expected = format === 'fhir' ? whole.out : (await cli(['export', '--format', format, '--redact', 'proj/ward'], dir)).out;
+      const piped = await cli(['export', '--format', format, '--redact', '.', '-', '--stdin-name', 'b.pneu'], elsewhere, NOTE);
+      expect(piped.out, format).toBe(expected);
+    }
+    const csv = await cli(['export', '--format', 'csv', '--redact', '.', '-', '--stdin-name', 'b.pneu'], elsewhere, NOTE);
+    expect(csv.out.trim().split('\n').slice(1).map((line) => line.split(',')[0])).toEqual(['note-00001', 'note-00002', 'note-00002', 'note-00003']);
+  });
+
+  it('reads pneumark.config.json upward from the folder of that path, not the working folder', async () => {
+    const dir = project('{ "gasUnit": "kPa" }');
+    const cwd = join(dir, 'elsewhere');
+    // Outside the project: read in mmHg, PaCO2 5.3 is doubted (PN204).
+    const unnamed = await cli(['check', '-'], cwd, NOTE);
+    expect(unnamed.out).toMatch(/PN204/);
+    // Named into the project (a file that does not exist): read in kPa, as a note there would be.
+    const named = await cli(['check', '-', '--stdin-name', '../proj/ward/new.pneu'], cwd, NOTE);
+    expect(named.code).toBe(0);
+    expect(named.out).not.toMatch(/PN204/);
+    expect(named.out).toMatch(/^1 note checked: 0 errors, 0 warnings/m);
+    const exported = await cli(['export', '--format', 'csv', '-', '--stdin-name', '../proj/ward/new.pneu'], cwd, NOTE);
+    const [header, row] = exported.out.split('\n');
+    const column = header!.split(',').indexOf('paco2_mmHg');
+    expect(column).toBeGreaterThan(0);
+    // 5.3 kPa = 39.75 mmHg (1 kPa = 7.50062 mmHg, the definition of the units).
+    expect(Number(row!.split(',')[column])).toBeCloseTo(39.75, 1);
+    // The problems of that file are reported, as for a file there.
+    writeFileSync(join(dir, 'proj', 'pneumark.config.json'), '{ "gasUnit": "kpa" }');
+    const bad = await cli(['check', '-', '--stdin-name', '../proj/ward/new.pneu'], cwd, NOTE);
+    expect(bad.code).toBe(2);
+    expect(bad.err).toMatch(/^pneumark: \.\.\/proj\/pneumark\.config\.json:1:3: `gasUnit`/);
+  });
+
+  it('fmt: messages name the note by that path', async () => {
+    const dir = project(null);
+    const binary = await cli(['fmt', '-', '--stdin-name', 'proj/ward/b.pneu'], dir, '@ 08:00\u0000\n');
+    expect(binary.code).toBe(2);
+    expect(binary.err).toBe('pneumark: proj/ward/b.pneu: looks like a binary file, not a note\n');
+    const printed = await cli(['fmt', '-', '--stdin-name', 'proj/ward/b.pneu'], dir, NOTE);
+    expect(printed.code).toBe(0);
+    expect(printed.out).toBe((await cli(['fmt', '-'], dir, NOTE)).out);
+  });
+
+  it('is described by the help of check, export and fmt', () => {
+    for (const command of ['check', 'export', 'fmt']) expect(HELP[command], command).toMatch(/--stdin-name PATH/);
+    expect(HELP.main).toMatch(/--stdin-name without - among the inputs/);
+  });
+});
+
+describe('--stdin-name usage errors (exit 2, one line)', () => {
+  const cases: [string, string[], RegExp][] = [
+    ['without - among the inputs', ['check', 'a.pneu', '--stdin-name', 'b.pneu'], /^pneumark check: --stdin-name names the note read from standard input, and - is not among the inputs; add - or leave --stdin-name out$/],
+    ['export without -', ['export', '--format', 'csv', 'a.pneu', '--stdin-name', 'b.pneu'], /^pneumark export: --stdin-name names the note read from standard input, and - is not among/],
+    ['fmt without -', ['fmt', 'a.pneu', '--stdin-name', 'b.pneu'], /^pneumark fmt: --stdin-name names the note read from standard input, and - is not among/],
+    ['empty', ['check', '-', '--stdin-name', ''], /^pneumark check: --stdin-name: must not be empty .*\(got ""\)$/],
+    ['no value', ['check', '-', '--stdin-name'], /^pneumark check: --stdin-name needs a value$/],
+    ['standard input itself', ['check', '-', '--stdin-name', '-'], /^pneumark check: --stdin-name: names standard input itself/],
+    ['a folder', ['export', '--format', 'jsonl', '-', '--stdin-name', 'ward/'], /^pneumark export: --stdin-name: ends in a slash: name a file, not a folder \(got "ward\/"\)$/],
+    ['a NUL character', ['check', '-', '--stdin-name', 'a\u0000.pneu'], /^pneumark check: --stdin-name: holds a NUL character/],
+    ['given twice', ['check', '-', '--stdin-name', 'a.pneu', '--stdin-name', 'b.pneu'], /^pneumark check: --stdin-name is given twice/],
+    ['a note among the inputs too', ['check', 'a.pneu', '-', '--stdin-name', './a.pneu'], /^pneumark check: --stdin-name a\.pneu names a note that is among the inputs too; each note is read once: leave out one of the two$/],
+  ];
+  for (const [what, args, message] of cases) {
+    it(what, async () => {
+      const dir = project(null);
+      writeFileSync(join(dir, 'a.pneu'), NOTE);
+      const r = await cli(args, dir, NOTE);
+      expect(r.code).toBe(2);
+      expect(r.out).toBe('');
+      expect(r.err.split('\n')).toHaveLength(2); // one line, then the end of it
+      expect(r.err.trimEnd()).toMatch(message);
+    });
+  }
+});
+
+describe('--stdin-name with the built command', () => {
+  const CLI = join(process.cwd(), 'dist/cli.js');
+  it('names a big note analysed in a worker thread of its own, and reads its project file, as in this thread', () => {
+    const dir = project('{ "gasUnit": "kPa" }');
+    const args = [CLI, 'check', '--format', 'json', '-', '--stdin-name', 'proj/ward/b.pneu'];
+    const spawn = (env: Record<string, string>) => spawnSync(process.execPath, args, { cwd: dir, input: NOTE, encoding: 'utf8', env: { ...process.env, NO_COLOR: '1', ...env } });
+    // PNEUMARK_BIG_NOTE_KB=0: every note goes to a worker of its own.
+    const alone = spawn({ PNEUMARK_BIG_NOTE_KB: '0' });
+    const here = spawn({});
+    expect(alone.stderr).toBe('');
+    expect(alone.stdout).toBe(here.stdout);
+    const parsed = JSON.parse(alone.stdout) as { files: { path: string; findings: { code: string }[] }[] };
+    expect(parsed.files.map((f) => f.path)).toEqual(['proj/ward/b.pneu']);
+    expect(parsed.files[0]!.findings.map((f) => f.code)).not.toContain('PN204');
+    expect(readFileSync(join(dir, 'proj', 'pneumark.config.json'), 'utf8')).toContain('kPa');
+  });
+});
