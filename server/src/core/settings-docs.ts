@@ -30,7 +30,7 @@ const MEANING: Readonly<Record<keyof Settings, string>> = {
   alveolarEquation: 'Form of the alveolar gas equation: `simplified`, PiO2 − PaCO2 ÷ R; `full`, PiO2 − PaCO2 × (FiO2 + (1 − FiO2) ÷ R).',
   barometricModel: 'How the barometric pressure is estimated from an altitude when none is stated: `west`, West\'s model atmosphere for high-altitude physiology (1996); `standard`, the U.S. Standard Atmosphere (1976).',
   waterVapour: 'Water vapour pressure in the inspired PO2: `fixed`, 47 mmHg (humidified at 37 °C) at every timepoint; `body-temperature`, the saturated vapour pressure at the temperature written at that timepoint (47 mmHg where none is).',
-  aaGradientRule: 'Upper normal A–a gradient for the age in years, in mmHg: `age-over-4-plus-4`, age ÷ 4 + 4; `age-plus-10-over-4`, (age + 10) ÷ 4; `mellemgaard`, 2.5 + 0.21 × age.',
+  aaGradientRule: 'Upper normal A–a gradient for the age in years, in mmHg: `age-over-4-plus-4`, age ÷ 4 + 4; `age-plus-10-over-4`, (age + 10) ÷ 4; `mellemgaard`, 2.5 + 0.21 × age. All three were made in adults: under 18 years no upper normal is given, and a reading judges the gradient against 20 mmHg, as without an age.',
   hypoxaemiaBelowMmhg: `PaO2 below which a gas reads as hypoxaemia, in mmHg also for notes written in kPa (${inKpa(DEFAULT_SETTINGS.hypoxaemiaBelowMmhg)}).`,
   hypercapniaAboveMmhg: `PaCO2 above which a gas reads as hypercapnia, in mmHg also for notes written in kPa (${inKpa(DEFAULT_SETTINGS.hypercapniaAboveMmhg)}).`,
   hypocapniaBelowMmhg: `PaCO2 below which a gas reads as hypocapnia, in mmHg also for notes written in kPa (${inKpa(DEFAULT_SETTINGS.hypocapniaBelowMmhg)}).`,

@@ -37,6 +37,13 @@ const NO_EXTRAS: ValueExtras = {};
 /** Extras giving only the decimals: one shared object per number of decimals (values shown beside a limit). */
 const WITH_DECIMALS: readonly ValueExtras[] = Array.from({ length: 9 }, (_, d) => Object.freeze({ decimals: d }));
 
+/**
+ * The age (years) from which rules made in adults are applied: the ARDS Network's predicted body
+ * weight (its trial enrolled adults of 18 years or more: ARDS Network 2000, from memory) and the
+ * age rules for the upper normal A–a gradient (made in adults). A younger patient gets neither.
+ */
+export const ADULT_FROM_YEARS = 18;
+
 export function withDecimals(decimals: number | undefined): ValueExtras {
   if (decimals === undefined) return NO_EXTRAS;
   return WITH_DECIMALS[decimals] ?? { decimals };

@@ -16,8 +16,8 @@ import {
   roxIndex,
   sfRatio,
 } from '../physiology';
-import { defineDerived, withDecimals, type DeriveContext, type Outcome, type Term, type ValueExtras } from './context';
-import { decimalsAgainst } from '../util/format';
+import { ADULT_FROM_YEARS, defineDerived, withDecimals, type DeriveContext, type Outcome, type Term, type ValueExtras } from './context';
+import { decimalsAgainst, formatShort } from '../util/format';
 import { SEA_LEVEL_MMHG } from './atmosphere';
 import type { Settings } from '../settings';
 
@@ -154,10 +154,21 @@ const AGE_RULE_TEXT = {
   mellemgaard: '2.5 + 0.21 × {age}',
 } as const;
 
-/** The upper normal A–a gradient for the age in force, by the rule the settings choose; null without an age. */
+/**
+ * The age rules were all made in adults, and no published rule for children was found: a patient
+ * under ADULT_FROM_YEARS gets no age-based upper normal (the reading then uses the generous limit it
+ * uses without an age, and says why).
+ */
+export function isUnderAdultAge(age: number): boolean {
+  return age < ADULT_FROM_YEARS;
+}
+
+const AA_RULES_FOR_ADULTS = `the age rules were made in adults (${ADULT_FROM_YEARS} years or more)`;
+
+/** The upper normal A–a gradient for the age in force, by the rule the settings choose; null without an adult age. */
 function upperNormalFor(c: DeriveContext): number | null {
   const age = c.field('age', 'age');
-  return age ? aaGradientUpperNormal(age.value, c.settings.aaGradientRule) : null;
+  return age && !isUnderAdultAge(age.value) ? aaGradientUpperNormal(age.value, c.settings.aaGradientRule) : null;
 }
 
 export const aaGradientUpperNormalDef = defineDerived({
@@ -173,6 +184,7 @@ export const aaGradientUpperNormalDef = defineDerived({
   compute(c) {
     const age = c.field('age', 'age');
     if (!age) return c.missing([age, 'age (patient line)']);
+    if (isUnderAdultAge(age.value)) return { kind: 'na', reason: `${AA_RULES_FOR_ADULTS}: no upper normal at age ${formatShort(age.value)} y` };
     const upper = aaGradientUpperNormal(age.value, c.settings.aaGradientRule);
     // Shown beside the gradient: with the decimals that keep the gradient on its side of it (A–a 11.8 above 11.5, not 12 and 12).
     const gradient = c.derivedValue('aa_gradient')?.value;

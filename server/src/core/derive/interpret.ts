@@ -13,9 +13,9 @@ import type { StatedValue } from '../analysis/model';
 import { classification } from './acid-base';
 import { GAS_KPA, GAS_MMHG, GasWords, offThreshold } from './gas-words';
 import { readVenous } from './venous';
-import { allowanceAt, isAboveAlveolar } from './gas-exchange';
+import { allowanceAt, isAboveAlveolar, isUnderAdultAge } from './gas-exchange';
 import { SEA_LEVEL_MMHG } from './atmosphere';
-import type { DeriveContext, Term } from './context';
+import { ADULT_FROM_YEARS, type DeriveContext, type Term } from './context';
 import type { AcidBaseFinding, DerivedValue, Interpretation, InterpretationTopic } from './model';
 import { NONE } from '../util/lists';
 import { fieldById } from '../fields/registry';
@@ -448,8 +448,11 @@ function mechanism(g: GasFacts): Interpretation {
   const raised = gradient.value > limit;
   const gradientShown = gas.value(gradient.value, limit);
   const limitShown = gas.limit(limit, gradient.value);
-  if (raised) causes.push(`a raised A–a gradient (${gradientShown}, above ${limitShown}): V/Q mismatch, shunt or a diffusion limit`);
-  const normalGradient = raised ? '' : ` The A–a gradient (${gradientShown}) is within the ${upper ? 'age-based ' : ''}normal of ${limitShown}${upper ? '' : ' (age unknown)'}.`;
+  // Without an age-based limit: the age is unknown, or a child's (the age rules were made in adults).
+  const age = upper ? null : c.field('age');
+  const noAgeLimit = upper ? '' : age && isUnderAdultAge(age.value) ? `no age-based normal under ${ADULT_FROM_YEARS} years` : 'age unknown';
+  if (raised) causes.push(`a raised A–a gradient (${gradientShown}, above ${limitShown}${age && noAgeLimit !== 'age unknown' ? `; ${noAgeLimit}` : ''}): V/Q mismatch, shunt or a diffusion limit`);
+  const normalGradient = raised ? '' : ` The A–a gradient (${gradientShown}) is within the ${upper ? 'age-based ' : ''}normal of ${limitShown}${upper ? '' : ` (${noAgeLimit})`}.`;
   const fio2 = c.fio2();
   const onOxygen = (fio2?.value ?? 0.21) > 0.21 + 1e-9;
   const caveat = onOxygen ? ' On supplemental oxygen the normal gradient is wider than the air-based limit.' : '';

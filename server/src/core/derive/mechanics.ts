@@ -16,7 +16,7 @@ import {
   vtPerKgPbw,
 } from '../physiology';
 import type { NoninvasiveSupport } from '../analysis/noninvasive-support';
-import { defineDerived, withDecimals, type DeriveContext, type Outcome, type Term, type ValueExtras } from './context';
+import { ADULT_FROM_YEARS, defineDerived, withDecimals, type DeriveContext, type Outcome, type Term, type ValueExtras } from './context';
 import { decimalsAgainst, formatShort } from '../util/format';
 
 export const minuteVentilation = defineDerived({
@@ -43,7 +43,7 @@ export const minuteVentilation = defineDerived({
 });
 
 /** Age (years) from which the ARDS Network's predicted body weight is worked out: the trial's adults (ARDS Network 2000, from memory). */
-export const PBW_ADULT_FROM_YEARS = 18;
+export const PBW_ADULT_FROM_YEARS = ADULT_FROM_YEARS;
 const PBW_FOR_ADULTS = `the ARDS Network equation is for adults (${PBW_ADULT_FROM_YEARS} years or more)`;
 
 /**
