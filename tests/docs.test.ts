@@ -311,6 +311,10 @@ const SPEC_LINES: Readonly<Record<string, readonly string[] | { readonly on: str
   'pco2 40 ph 7.4': [],
   'fio2 28': { on: 'vent fio2 28', codes: [] },
   'fio2 28 %': { on: 'oxygen venturi fio2 28 %', codes: [] },
+  'oxygen venturi 28, fio2 0.28': [],
+  'fio2 0.28': { on: 'oxygen venturi 28, fio2 0.28', codes: [] },
+  'fio2 0.3': { on: 'oxygen venturi 28, fio2 0.3', codes: [] },
+  'oxygen venturi 28, fio2 0.35': ['PN206'],
   'spo2 0.94': ['PN302'],
   'po2 9.1': ['PN204'],
 };
