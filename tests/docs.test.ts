@@ -315,6 +315,10 @@ const SPEC_LINES: Readonly<Record<string, readonly string[] | { readonly on: str
   'fio2 0.28': { on: 'oxygen venturi 28, fio2 0.28', codes: [] },
   'fio2 0.3': { on: 'oxygen venturi 28, fio2 0.3', codes: [] },
   'oxygen venturi 28, fio2 0.35': ['PN206'],
+  'oxygen hfnc 60 %': ['PN323'],
+  'oxygen hfnc 40 L/min 60 %': ['PN323'],
+  'fio2 60 %': { on: 'oxygen hfnc fio2 60 %', codes: [] },
+  'oxygen nasal 28 %': ['PN203'],
   'spo2 0.94': ['PN302'],
   'po2 9.1': ['PN204'],
 };

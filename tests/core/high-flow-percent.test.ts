@@ -1,8 +1,10 @@
 // A percentage after a high-flow nasal device (`oxygen hfnc 60 %`). A high-flow device is set by a
-// total gas flow and by the oxygen fraction of its blender (Roca O et al., "An index combining
-// respiratory rate and oxygenation to predict outcome of nasal high-flow therapy", Am J Respir Crit
-// Care Med 2019;199:1368–1376, from memory: flow and FiO2 are its two settings), and a flow is
-// never written in %: so a number with `%` after `hfnc` can only be its FiO2. It was PN203 "Oxygen
+// total gas flow and by the oxygen fraction of its air–oxygen blender (Guia M et al., "High-flow
+// nasal oxygen therapy in acute hypoxemic respiratory failure: concise review on technology and
+// initial methodology", Turk Thorac J 2021;22:494–500, read; Li J et al., "Optimizing high-flow
+// nasal cannula flow settings in adult hypoxemic patients based on peak inspiratory flow during
+// tidal breathing", Ann Intensive Care 2021;11:164, read: the flow set in L/min, the FiO2 titrated
+// on its own), and a flow is never written in %: so a number with `%` after `hfnc` can only be its FiO2. It was PN203 "Oxygen
 // flow is not measured in %", and nothing was read. It is now read as the FiO2, and said (PN323,
 // information), with fixes that write `fio2 60 %` or, for a mistyped flow, `60 L/min`. A flow then
 // a percentage (`hfnc 40 L/min 60 %`, before: PN105 twice) gives both. Devices whose FiO2 is not
@@ -91,7 +93,7 @@ describe('a percentage after `hfnc`', () => {
     expect(codesOn(note('oxygen hfnc 60 %, fio2 0.6'), 2)).toEqual([]);
     const f = checkNote(note('oxygen hfnc 60 %, fio2 0.5')).findings.filter((x) => x.range.start.line === 2);
     expect(f.map((x) => x.code)).toEqual(['PN206']);
-    expect(f[0]!.message).toBe('FiO2 is stated twice on this line, and the two disagree: the percentage after the device `60 %` gives 0.60, and `fio2 0.5` gives 0.50. The `fio2` written (0.50) is used; keep the one that was given.');
+    expect(f[0]!.message).toBe('FiO2 is stated twice on this line, and the two disagree: `60 %` after `hfnc` gives 0.60, and `fio2 0.5` gives 0.50. The `fio2` written (0.50) is used; keep the one that was given.');
     expect(valuesOf(note('oxygen hfnc 60 %, fio2 0.5')).numberOf('fio2')).toBeCloseTo(0.5, 10);
   });
 
@@ -101,9 +103,25 @@ describe('a percentage after `hfnc`', () => {
     expect(valuesOf(note('oxygen hfnc 15 %')).numberOf('fio2')).toBeNull();
   });
 
-  it('the formatter keeps both numbers after the device', () => {
-    expect(formatNote('@ day 1 08:00\noxygen   hfnc   40 L/min   60 %').split('\n')[1]).toMatch(/^oxygen +hfnc 40 L\/min 60 %$/);
-    expect(formatNote('@ day 1 08:00\noxygen   hfnc   60 %').split('\n')[1]).toMatch(/^oxygen +hfnc 60 %$/);
+  it('the formatter leaves the line as written until the FiO2 is keyed, as after `venturi 28`, and then aligns it', () => {
+    expect(formatNote('@ day 1 08:00\noxygen   hfnc   40 L/min   60 %').split('\n')[1]).toBe('oxygen   hfnc   40 L/min   60 %');
+    expect(formatNote('@ day 1 08:00\noxygen   hfnc   40 L/min   fio2 60 %').split('\n')[1]).toMatch(/^oxygen +hfnc 40 L\/min fio2 60 %$/);
+  });
+});
+
+describe('naming NIV for an EPAP beside `hfnc` (PN318) keys the FiO2, which NIV would read as a flow', () => {
+  it.each([
+    ['oxygen hfnc 60 %, epap 6', 'oxygen niv fio2 60 %, epap 6'],
+    ['oxygen hfnc 40 L/min 60 %, epap 6', 'oxygen niv 40 L/min fio2 60 %, epap 6'],
+    ['oxygen hfnc 60 % 40 L/min, epap 6', 'oxygen niv fio2 60 % flow 40 L/min, epap 6'],
+  ])('`%s`', (line, fixed) => {
+    const text = `@ day 1 08:00\n${line}`;
+    const pn318 = checkNote(text).findings.find((f) => f.code === 'PN318')!;
+    const toNiv = pn318.fixes.find((f) => f.title === 'Change the device to `niv`')!;
+    const after = applyEdits(text, toNiv.edits);
+    expect(after.split('\n')[1]).toBe(fixed);
+    expect(checkNote(after).analysis.timeline.timepoints[0]!.values.numberOf('fio2')).toBeCloseTo(0.6, 10);
+    expect(checkNote(after).findings.filter((f) => f.severity === 'error')).toEqual([]);
   });
 });
 

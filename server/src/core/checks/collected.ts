@@ -116,7 +116,7 @@ function visitVenturiSetting(ctx: CheckContext, node: LineNode): void {
  * FiO2 read from the number after the device is then stated again, and either agrees with it
  * (nothing to say) or not (PN206 names both).
  */
-function visitDeviceFio2(ctx: CheckContext, node: LineNode, check: 'venturi-setting'): void {
+function visitDeviceFio2(ctx: CheckContext, node: LineNode, check: 'venturi-setting' | 'high-flow-percent'): void {
   if (node.issues.length === 0 || node.kind !== 'section') return;
   let issue: SyntaxIssue | null = null;
   for (const found of node.issues) if (found.check === check) issue = found;
@@ -124,6 +124,31 @@ function visitDeviceFio2(ctx: CheckContext, node: LineNode, check: 'venturi-sett
   const items = node.items;
   for (let k = 0; k < items.length; k++) if (items[k]!.implied === null && items[k]!.field?.id === 'fio2') return;
   ctx.report({ range: toRange(node.line, issue.span), message: issue.message, fixes: lineFixesToFixes(node.line, issue.fixes) });
+}
+
+/**
+ * A percentage after a high-flow device (`oxygen hfnc 60 %`, `hfnc 40 L/min 60 %`), which the parser
+ * reads as the FiO2 it gives: said, so the reading is seen, with fixes that write it.
+ */
+export const highFlowPercent = defineCheck({
+  code: 'PN323',
+  alias: 'high-flow-percent',
+  title: 'Percentage after hfnc read as its FiO2',
+  severity: 'information',
+  tags: ['plausibility'],
+  doc: {
+    fires: 'A number written with `%` follows `hfnc` (or `highflow`) on an oxygen line without a key, right after the device (`oxygen hfnc 60 %`) or after its flow (`oxygen hfnc 40 L/min 60 %`). A high-flow device is set by a total gas flow in L/min and by the oxygen fraction of its blender, and a flow is never written in %, so the number is read as the FiO2 (60 %, 0.60) and used as a stated FiO2 (P/F, A–a gradient, exports). Not reported where the line writes a `fio2` of its own: where the two agree the FiO2 is stated once; where they disagree PN206 names both, and the `fio2` written is used. After other devices a percentage stays a unit the flow does not take (PN203), offered as the FiO2 with its key: a cannula or a simple or reservoir mask gives an FiO2 that is not set, and NIV and CPAP may take their oxygen at a flow.',
+    example: '@ 08:00\noxygen hfnc 60 %',
+    fix: 'Write which it is: `hfnc fio2 60 %` for the FiO2 read, or `hfnc 60 L/min` for a flow (offered only where no flow is written). The quick fixes write each.',
+  },
+  source: 'Guia M, Alpay N, Gerardo A, et al. High-flow nasal oxygen therapy in acute hypoxemic respiratory failure: concise review on technology and initial methodology. Turk Thorac J 2021;22(6):494–500 (an air–oxygen blender gives up to 100 % oxygen, at a flow of up to 80 L/min). Li J, Scott JB, Fink JB, et al. Optimizing high-flow nasal cannula flow settings in adult hypoxemic patients based on peak inspiratory flow during tidal breathing. Ann Intensive Care 2021;11:164 (the flow set in L/min, the FiO2 titrated on its own)',
+  runTimepoint(ctx) {
+    forTimepointLines(ctx, visitHighFlowPercent);
+  },
+});
+
+function visitHighFlowPercent(ctx: CheckContext, node: LineNode): void {
+  visitDeviceFio2(ctx, node, 'high-flow-percent');
 }
 
 export const unknownKey = readCheck('PN201', 'unknown-key', 'Unknown key', 'error', ['units'], FORMAT_RULE, {
@@ -141,7 +166,7 @@ export const unknownUnit = readCheck('PN202', 'unknown-unit', 'Unknown unit', 'e
 export const unitNotAllowed = readCheck('PN203', 'unit-not-allowed', 'Unit not allowed for this field', 'error', ['units'], FORMAT_RULE, {
   fires: 'The unit is known but measures something else (e.g. a rate in mmHg).',
   example: 'vitals hr 118 mmHg',
-  fix: 'Write a unit the field takes, or none. A percentage after an oxygen device (`hfnc 60 %`) is offered as the FiO2 it gives (`hfnc fio2 60 %`) before a flow in L/min; after `venturi`, which is set by its FiO2, it is read as the FiO2 (PN321).',
+  fix: 'Write a unit the field takes, or none. A percentage after an oxygen device (`mask 40 %`) is offered as the FiO2 it gives (`mask fio2 40 %`) before a flow in L/min; after `venturi` and `hfnc`, which are set by their FiO2, it is read as the FiO2 (PN323 says so after `hfnc`).',
 });
 
 export const otherUnitLikely = readCheck('PN204', 'other-unit-likely', 'Value reads as another unit', 'warning', ['units', 'plausibility'], 'common practice, no source: the soft bounds of the field registry, widened for PaO2 and PaCO2 (our convention)', {
