@@ -203,11 +203,12 @@ export function unitSpellings(UNITS, twoWords = false) {
   return [...new Set(out)];
 }
 
-function deviceWords(FIELDS) {
+function deviceWords(FIELDS, highFlow = null) {
   const device = FIELDS.find((f) => f.id === 'device');
   const oxygenKeys = new Set(keysOf(FIELDS, 'oxygen'));
   // As in the parser: a device word that is also a key of the oxygen section is read as the key.
-  return Object.keys(device?.words ?? {}).filter((w) => !oxygenKeys.has(w));
+  // `highFlow`: only the words of a high-flow device (true), or only the others (false).
+  return Object.entries(device?.words ?? {}).filter(([w, canonical]) => !oxygenKeys.has(w) && (highFlow === null || (canonical === 'hfnc') === highFlow)).map(([w]) => w);
 }
 
 // ── rule builders ──────────────────────────────────────────────────────────
@@ -268,6 +269,23 @@ function numberWithUnit(units, keys) {
     '|', cap('keyword.other.unit.unknown', `[^\\s,#]${CHUNK_REST}`), VALUE_END,
     '|', spacedUnit(units, keys),
     ')?',
+  ];
+}
+
+/** A number with a percentage, glued or after blanks (`60%`, `60 %`): after `hfnc`, its FiO2. */
+function numberWithPercent(percent) {
+  return [cap(numeric, NUM), '\\s*', cap('keyword.other.unit', percent), VALUE_END];
+}
+
+/**
+ * The numbers after a high-flow device without a key, as the parser reads them: a flow and a
+ * percentage (its FiO2), in either order (`hfnc 40 L/min 60 %`, `hfnc 60 % 40`), or one of them.
+ */
+function highFlowNumbers(units, keys, percent) {
+  const notPercent = `(?!${NUM}\\s*${percent}${VALUE_END})`;
+  return [
+    '(?:', numberWithPercent(percent), '(?:\\s+', notPercent, numberWithUnit(units, keys), ')?',
+    '|', numberWithUnit(units, keys), '(?:\\s+', numberWithPercent(percent), ')?', ')',
   ];
 }
 
@@ -506,6 +524,8 @@ export function buildGrammar({ SECTIONS, FIELDS, UNITS, BLANKS }) {
   // A unit may be of two words (`mm Hg`), glued to its number or after blanks, as the parser reads it.
   const spellings = alt(unitSpellings(UNITS, true));
   const units = { glued: spellings, spaced: spellings };
+  // The spellings of a percentage (`%`, `percent`, `pct`), as the parser tells one (`isPercent`).
+  const percent = alt(UNITS.filter((u) => u.id === '%').flatMap((u) => [u.id, ...u.aliases]));
   const repository = {
     comment: {
       comment: '`#` starts a comment that runs to the end of the line, anywhere on the line.',
@@ -560,13 +580,16 @@ export function buildGrammar({ SECTIONS, FIELDS, UNITS, BLANKS }) {
     const keys = alt(keysOf(FIELDS, section.id));
     const lead = {
       // An oxygen line starts with the device; a number right after it is its flow (or CPAP level).
-      oxygen: ['(?:', leadGap, cap('constant.language', alt(deviceWords(FIELDS))), VALUE_END, '(?:\\s+', numberWithUnit(units, keys), ')?)?'],
+      // After `hfnc`, a percentage is its FiO2, beside its flow (`hfnc 40 L/min 60 %`).
+      oxygen: ['(?:', leadGap, '(?:',
+        cap('constant.language', alt(deviceWords(FIELDS, true))), VALUE_END, '(?:\\s+', highFlowNumbers(units, keys, percent), ')?',
+        '|', cap('constant.language', alt(deviceWords(FIELDS, false))), VALUE_END, '(?:\\s+', numberWithUnit(units, keys), ')?', '))?'],
       abg: shorthandLead(units, keys),
       vbg: shorthandLead(units, keys),
     }[section.id];
     const begin = assemble(LEAD, sectionWord, END, lead ?? '');
     repository[ruleName] = {
-      ...(section.id === 'oxygen' ? { comment: 'An oxygen line starts with the device; a number right after it is its flow (or CPAP level).' } : {}),
+      ...(section.id === 'oxygen' ? { comment: 'An oxygen line starts with the device; a number right after it is its flow (or CPAP level); after hfnc, a flow and a percentage, its FiO2.' } : {}),
       ...(lead && section.id !== 'oxygen' ? { comment: 'A blood gas line may start with the shorthand pH/PCO2/PO2/HCO3 and the unit of its pressures.' } : {}),
       begin: begin.regex,
       beginCaptures: begin.captures,

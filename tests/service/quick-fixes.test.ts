@@ -224,9 +224,11 @@ describe('a fix that would make a value impossible', () => {
 
 describe('a percentage written after an oxygen device', () => {
   // After `venturi`, which is set by its FiO2, a percentage is read as the FiO2 with no finding
-  // (tests/core/venturi-setting.test.ts); after another device it is offered as one.
+  // (tests/core/venturi-setting.test.ts); after `hfnc` it is read as the FiO2 too, and said (PN323,
+  // tests/core/high-flow-percent.test.ts: this test used `hfnc 60%` for PN203 before); after
+  // another device it is offered as one.
   it('is offered first as the FiO2 it gives (`mask fio2 40 %`), before a flow in L/min that would read 40 L/min', () => {
-    for (const [line, fixed] of [['oxygen    mask 40 |%', 'oxygen    mask fio2 40 %'], ['oxygen    hfnc 60|%', 'oxygen    hfnc fio2 60%']] as const) {
+    for (const [line, fixed] of [['oxygen    mask 40 |%', 'oxygen    mask fio2 40 %'], ['oxygen    nasal 28|%', 'oxygen    nasal fio2 28%']] as const) {
       const { text, result, range } = noteAt(`@ 08:00\n${line}\nabg       7.40/40/80/24`);
       const actions = codeActions(result, range).filter((a) => a.kind === 'quickfix');
       expect(actions.map((a) => a.title), line).toEqual([`Write it as the FiO2: ${fixed.slice(fixed.indexOf('fio2'))}`, 'Change to L/min']);
@@ -236,6 +238,15 @@ describe('a percentage written after an oxygen device', () => {
       // The FiO2 is read, and P/F follows from it.
       expect(checkNote(after).analysis.timeline.timepoints[0]!.values.numberOf('fio2'), line).toBeCloseTo(Number(fixed.match(/(\d+) ?%/)![1]) / 100);
     }
+  });
+
+  it('after `hfnc` is read as the FiO2 already: PN323 offers to write its key, or a flow in L/min', () => {
+    const { text, result, range } = noteAt('@ 08:00\noxygen    hfnc 60|%\nabg       7.40/40/80/24');
+    const actions = codeActions(result, range).filter((a) => a.kind === 'quickfix');
+    expect(actions.map((a) => a.title)).toEqual(['Write `fio2 60 %`', 'Write `60 L/min`']);
+    expect(applyEdits(text, actions[0]!.edits).split('\n')[1]).toBe('oxygen    hfnc fio2 60%');
+    expect(applyEdits(text, actions[1]!.edits).split('\n')[1]).toBe('oxygen    hfnc 60L/min');
+    for (const action of actions) expect(problemsAfter(text, result, action)).toEqual([]);
   });
 
   it('is not offered as a FiO2 where it could not be one, for a flow written with a key, or beside a FiO2', () => {

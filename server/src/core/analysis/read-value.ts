@@ -610,10 +610,10 @@ function unitNotAllowedIssue(item: ItemNode, field: FieldDef, line: number, cand
 }
 
 /**
- * A percentage after an oxygen device (`hfnc 60 %`, `mask 40 %`) is the FiO2 the device
- * gives, not its flow: the fix that keeps what was meant writes the key (`hfnc fio2 60 %`),
- * offered first and before `Change to L/min`, which would read 60 L/min (after `venturi` the
- * parser reads it as the FiO2 already: `venturiNumberKey`). Null unless the number is
+ * A percentage after an oxygen device (`mask 40 %`, `cannula 28 %`) is the FiO2 the device
+ * gives, not its flow: the fix that keeps what was meant writes the key (`mask fio2 40 %`),
+ * offered first and before `Change to L/min`, which would read 40 L/min (after `venturi` and
+ * `hfnc` the parser reads it as the FiO2 already: `venturiNumberKey`, `highFlowPercentIssue`). Null unless the number is
  * a possible FiO2 in percent and the line states no FiO2 of its own (it would then be stated twice).
  */
 function asFio2(item: ItemNode, candidates: readonly UnitDef[], written: number | null, lineItems: readonly ItemNode[]): LineFix | null {

@@ -46,6 +46,7 @@ import type { ReadIssue } from './read-issues';
 import { readItem, type ReadContext } from './read-value';
 import { NONE } from '../util/lists';
 import { compact } from '../util/numbers';
+import { formatNumber } from '../util/format';
 
 interface Held {
   readonly stated: StatedValue;
@@ -506,7 +507,7 @@ function processBlock(lines: readonly LineNode[], start: number, end: number, in
     const from = inHeader ? into.length : count;
     const to = readLine(node, context.read, issues, into, from);
     if (!inHeader) count = to;
-    if (to > from) duplicates(into, from, to, inHeader ? seenInHeader : seenAtTimepoint, inHeader, issues);
+    if (to > from) duplicates(into, from, to, inHeader ? seenInHeader : seenAtTimepoint, inHeader, issues, node.items);
     apply(node.section, into, from, to, inHeader ? -1 : index, inHeader ? 'header' : tpLabel!, mutable);
   }
   SEEN_IN_HEADER.reset();
@@ -622,6 +623,15 @@ class FirstSeen {
     return null;
   }
 
+  /** Makes `s` the first value of its section and field (seen already: `earlier` found one). */
+  replace(s: StatedValue): void {
+    const values = this.values;
+    for (let i = 0; i < this.count; i++) {
+      const v = values[i]!;
+      if (v.fieldId === s.fieldId && v.section === s.section) values[i] = s;
+    }
+  }
+
   /** Forgets the values seen (and lets go of them): one of each kind serves every block. */
   reset(): this {
     for (let i = 0; i < this.count; i++) this.values[i] = undefined;
@@ -637,11 +647,22 @@ const SEEN_AT_TIMEPOINT = new FirstSeen();
  * The same field twice in one section at one timepoint (or in the header): the later value wins,
  * the first is named.
  */
-function duplicates(stated: readonly (StatedValue | undefined)[], from: number, to: number, seen: FirstSeen, inHeader: boolean, issues: ReadIssue[]): void {
+function duplicates(stated: readonly (StatedValue | undefined)[], from: number, to: number, seen: FirstSeen, inHeader: boolean, issues: ReadIssue[], items: readonly ItemNode[]): void {
   for (let k = from; k < to; k++) {
     const s = stated[k]!;
     const earlier = seen.earlier(s);
     if (!earlier) continue;
+    if (earlier.item.implied === 'device-flow' && s.item.implied === null && s.fieldId === 'fio2' && earlier.line === s.line) {
+      // `oxygen venturi 28, fio2 0.28`: the FiO2 read from the number after the device, then the
+      // `fio2` written on the same line. Later `fio2`s are compared with the one written.
+      seen.replace(s);
+      const conflict = deviceFio2Conflict(earlier, s, items);
+      if (conflict === 'agree') continue;
+      if (conflict !== 'unread') {
+        issues.push(conflict);
+        continue;
+      }
+    }
     issues.push({
       check: 'duplicate-key',
       line: s.line,
@@ -652,6 +673,74 @@ function duplicates(stated: readonly (StatedValue | undefined)[], from: number, 
       related: [{ line: earlier.line, span: earlier.item.span, message: 'first stated here' }],
     });
   }
+}
+
+/**
+ * An FiO2 read from the number after the device (`device`: the Venturi setting `venturi 28`, or a
+ * percentage after `hfnc`) and the `fio2` written on the same line (`written`). 'agree' where the two
+ * agree: the same fraction at the precision of the less precise of the two as written (`venturi
+ * 28, fio2 0.28`, and `fio2 0.3`, 28 % to one decimal; not `fio2 0.29`); that states the FiO2 once,
+ * and the `fio2` written is the one used. Else the duplicate, naming both values, where each comes
+ * from and which is used (the `fio2`, the later, as for any value stated twice), with a fix that
+ * keeps each; 'unread' where a value is missing (a unit not allowed), for the plain duplicate.
+ */
+function deviceFio2Conflict(device: StatedValue, written: StatedValue, items: readonly ItemNode[]): ReadIssue | 'agree' | 'unread' {
+  const a = device.value;
+  const b = written.value;
+  if (a === null || b === null) return 'unread';
+  const stepA = writtenStep(device);
+  const stepB = writtenStep(written);
+  if (Math.abs(a - b) < Math.max(stepA, stepB) / 2 - 1e-9) return 'agree';
+  const at = items.indexOf(device.item);
+  let w = at - 1;
+  while (w >= 0 && items[w]!.implied !== 'device') w--;
+  const word = w >= 0 ? items[w]! : null;
+  const venturi = word !== null && word.implied === 'device' && word.value?.kind === 'word' && word.value.text.toLowerCase() === 'venturi';
+  const deviceText = itemText(device.item);
+  const writtenText = itemText(written.item);
+  const named = venturi ? `the Venturi setting \`${deviceText}\`` : `\`${deviceText}\` after \`${word?.value?.text ?? 'the device'}\``;
+  const used = written.usable
+    ? `The \`${written.item.key?.text ?? 'fio2'}\` written (${formatNumber(b, decimalsOf(stepB))}) is used`
+    : `The \`${written.item.key?.text ?? 'fio2'}\` written replaces ${venturi ? 'the setting' : 'the percentage'}, but is not used itself (see its finding)`;
+  const before = items[items.indexOf(written.item) - 1];
+  return {
+    check: 'duplicate-key',
+    line: written.line,
+    span: written.item.key?.span ?? written.item.span,
+    message: `FiO2 is stated twice on this line, and the two disagree: ${named} gives ${formatNumber(a, decimalsOf(stepA))}, and \`${writtenText}\` gives ${formatNumber(b, decimalsOf(stepB))}. ${used}; keep the one that was given.`,
+    fixes: [
+      { title: `Keep \`${writtenText}\` (remove ${venturi ? `the Venturi setting \`${deviceText}\`` : `\`${deviceText}\``})`, edits: [{ span: { start: at > 0 ? items[at - 1]!.span.end : device.item.span.start, end: device.item.span.end }, newText: '' }] },
+      { title: `Keep ${venturi ? `the Venturi setting \`${deviceText}\`` : `\`${deviceText}\``} (remove \`${writtenText}\`)`, edits: [{ span: { start: before !== undefined ? before.span.end : written.item.span.start, end: written.item.span.end }, newText: '' }] },
+    ],
+    related: [{ line: device.line, span: device.item.span, message: venturi ? 'the Venturi setting, read as the FiO2' : 'the percentage after the device, read as the FiO2' }],
+  };
+}
+
+/** An item as written, from its key (if any) to its unit (if any). */
+function itemText(item: ItemNode): string {
+  const value = item.value;
+  const unit = item.unit;
+  const key = item.key;
+  let text = value?.text ?? '';
+  if (unit !== null) text += `${value !== null && unit.span.start === value.span.end ? '' : ' '}${unit.text}`;
+  return key === null ? text : `${key.text} ${text}`;
+}
+
+/** The step of a number as written, in the value's canonical unit: 0.01 for `28` read as 28 % (0.28), 0.1 for `0.3`. */
+function writtenStep(s: StatedValue): number {
+  const n = s.item.number;
+  const v = s.value;
+  if (n === null || v === null || n === 0) return 0;
+  const text = s.item.value?.text ?? '';
+  let point = text.indexOf('.');
+  if (point < 0) point = text.indexOf(',');
+  const decimals = point < 0 ? 0 : text.length - point - 1;
+  return Math.abs(v / n) * 10 ** -decimals;
+}
+
+/** Decimals that show a number of this step (at least 2, as FiO2 is shown). */
+function decimalsOf(step: number): number {
+  return step > 0 ? Math.max(2, Math.min(6, Math.round(-Math.log10(step)))) : 2;
 }
 
 type MutableState = { -readonly [K in keyof CarryState]: CarryState[K] };

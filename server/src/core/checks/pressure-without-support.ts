@@ -124,8 +124,8 @@ function adviceOf(pressure: StatedValue, names: { name: string; key: string }, d
  * pressure removed with the separator before it (or, first on its line, the one after it). Beside
  * `niv` or `cpap`, the one way `mendOf` finds. A number right after the device is its flow, but after
  * `cpap` its level: naming CPAP keys such a flow (`cannula 2` → `cpap flow 2`); and after `venturi`
- * maybe its FiO2, which any other device would read as a flow: naming the support keys it
- * (`venturi 0.4` → `niv fio2 0.4`). The device is not
+ * or `hfnc` maybe its FiO2, which any other device would read as a flow: naming the support keys it
+ * (`venturi 0.4` → `niv fio2 0.4`, `hfnc 60 %` → `niv fio2 60 %`), and a second number after `hfnc` too. The device is not
  * renamed where the pressures, then used, would be out of order (PN314, PN315): each is a mistake
  * of its own, and the fix would give the note an error.
  */
@@ -141,10 +141,13 @@ function fixesOf(ctx: TimepointContext, node: SectionLine, pressure: StatedValue
   }
   if (word && (mend === null || mend === 'device') && inOrderOnceNamed(ctx, pressure.line)) {
     const edits: TextEdit[] = [{ range: toRange(device.line, word.span), newText: support }];
-    const flow = items[items.indexOf(device.item) + 1];
-    // After another device the number is read again: after `cpap` it would be the level, and
-    // only after `venturi` is it an FiO2 (`venturi 0.4` → `niv fio2 0.4`). It keeps its key.
-    if (flow?.implied === 'device-flow' && (support === 'cpap' || flow.keyName === 'fio2')) edits.push({ range: toRange(device.line, { start: flow.span.start, end: flow.span.start }), newText: `${flow.keyName === 'fio2' ? 'fio2' : 'flow'} ` });
+    // After another device the numbers are read again: after `cpap` the first would be the level,
+    // only after `venturi` or `hfnc` is one an FiO2 (`venturi 0.4` → `niv fio2 0.4`), and only
+    // after `hfnc` is there a second (`hfnc 60 % 40 L/min` → `niv fio2 60 % flow 40 L/min`). Each keeps its key.
+    for (let k = items.indexOf(device.item) + 1, first = true; items[k]?.implied === 'device-flow'; k++, first = false) {
+      const flow = items[k]!;
+      if (support === 'cpap' || flow.keyName === 'fio2' || !first) edits.push({ range: toRange(device.line, { start: flow.span.start, end: flow.span.start }), newText: `${flow.keyName === 'fio2' ? 'fio2' : 'flow'} ` });
+    }
     fixes.push({ title: `Change the device to \`${support}\``, edits });
   }
   const at = items.indexOf(pressure.item);

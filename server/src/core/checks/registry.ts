@@ -7,7 +7,7 @@
  * PN4xx physiology, PN5xx privacy, PN9xx internal.
  */
 import type { CheckDef } from './check';
-import { badShorthand, badTime, venturiSetting, decimalComma, duplicateKey, missingValue, otherUnitLikely, strayText, unitNotAllowed, unknownKey, unknownSection, unknownUnit, unknownWord } from './collected';
+import { badShorthand, badTime, highFlowPercent, venturiSetting, decimalComma, duplicateKey, missingValue, otherUnitLikely, strayText, unitNotAllowed, unknownKey, unknownSection, unknownUnit, unknownWord } from './collected';
 import { pao2AboveAlveolar } from './alveolar-limit';
 import { occultHypoxaemiaCheck } from './occult-hypoxaemia';
 import { gasInconsistent } from './gas-consistency';
@@ -65,6 +65,7 @@ export const CHECKS: readonly CheckDef[] = validateCheckList([
   placePressureUnlikeAltitude,
   venturiSetting,
   venturiFio2High,
+  highFlowPercent,
   pao2AboveAlveolar,
   gasInconsistent,
   tidalVolumeHigh,

@@ -1556,6 +1556,30 @@ function venturiSettingIssue(device: string, number: string, start: number, end:
   };
 }
 
+/** Whether a unit is written as a percentage (`%`). */
+function isPercent(unit: Located | null): boolean {
+  return unit !== null && unitsForSpelling(unit.text).some((u) => u.id === '%');
+}
+
+/**
+ * A percentage after a high-flow device without a key (`hfnc 60 %`), read as the FiO2 it gives (a
+ * flow is never in %): said (information), with fixes that write which was meant, the FiO2 read or,
+ * where the line gives no flow of its own without a key (`offerFlow`), a flow in L/min.
+ */
+function highFlowPercentIssue(device: string, source: string, item: Item, offerFlow: boolean): SyntaxIssue {
+  const start = item.span.start;
+  const unit = item.unit!;
+  const numberText = item.value!.text;
+  const fixes: LineFix[] = [{ title: `Write \`fio2 ${numberText} %\``, edits: [{ span: { start, end: start }, newText: 'fio2 ' }] }];
+  if (offerFlow) fixes.push({ title: `Write \`${numberText} L/min\``, edits: [{ span: unit.span, newText: 'L/min' }] });
+  return {
+    check: 'high-flow-percent',
+    span: { start, end: item.span.end },
+    message: `\`${source.slice(start, item.span.end)}\` after \`${device}\` is read as the FiO2 it gives, ${numberText} % (a high-flow device is set by a flow in L/min and an FiO2; a flow is never in %). Write \`fio2 ${numberText} %\` to say so${offerFlow ? `, or \`${numberText} L/min\` for a flow` : ''}.`,
+    fixes,
+  };
+}
+
 /** `source` is the text of the line (spans and numbers' texts refer to it). */
 function parseItems(section: SectionId, chunks: readonly Word[], start: number, issues: SyntaxIssue[], source: string): readonly ItemNode[] {
   let i = start;
@@ -1610,9 +1634,30 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
           const unit = unitAfter(gluedUnit(next, length), chunks, i, section, source);
           i += UNIT_CHUNKS;
           const deviceWord = lowerCase(dev.text);
-          const keyName = deviceWord === 'cpap' ? 'level' : deviceWord === 'venturi' ? venturiNumberKey(number, unit) : 'flow';
+          const highFlow = deviceWord !== 'cpap' && deviceWord !== 'venturi' && canonicalWord(fieldFor(section, 'device')!, dev.text) === 'hfnc';
+          const percent = highFlow && isPercent(unit);
+          const keyName = deviceWord === 'cpap' ? 'level' : deviceWord === 'venturi' ? venturiNumberKey(number, unit) : percent ? 'fio2' : 'flow';
           if (keyName === 'fio2' && unit === null && number > 1) issues.push(venturiSettingIssue(dev.text, source.slice(next.start, next.start + length), next.start, next.start + length));
           items[count++] = numberItem(null, keyName, 'device-flow', fieldFor(section, keyName) ?? null, source, number, next.start + length, comma, unit, next.start);
+          if (highFlow) {
+            // `hfnc 40 L/min 60 %`, `hfnc 60 % 40 L/min`: a flow and a percentage, each without its key.
+            const second = chunks[i];
+            const secondLength = second && !second.afterComma ? numberChunk(second) : 0;
+            let other: Item | null = null;
+            if (secondLength > 0) {
+              const secondNumber = SCANNED.value;
+              const secondComma = SCANNED.decimalComma;
+              const secondUnit = unitAfter(gluedUnit(second!, secondLength), chunks, i + 1, section, source);
+              if (isPercent(secondUnit) !== percent) {
+                i += 1 + UNIT_CHUNKS;
+                const secondKey = percent ? 'flow' : 'fio2';
+                other = numberItem(null, secondKey, 'device-flow', fieldFor(section, secondKey) ?? null, source, secondNumber, second!.start + secondLength, secondComma, secondUnit, second!.start);
+                items[count++] = other;
+              }
+            }
+            const fio2 = percent ? items[count - (other === null ? 1 : 2)]! : other;
+            if (fio2 !== null) issues.push(highFlowPercentIssue(dev.text, source, fio2, other === null));
+          }
         }
       }
     }

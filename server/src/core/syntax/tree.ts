@@ -92,7 +92,8 @@ export type SyntaxCheckAlias =
   | 'bad-time'
   | 'stray-text'
   | 'bad-shorthand'
-  | 'venturi-setting';
+  | 'venturi-setting'
+  | 'high-flow-percent';
 
 export interface TimeSpec {
   readonly kind: 'clock' | 'offset' | 'day';
