@@ -67,11 +67,14 @@ describe('whole-note requests about a big note', () => {
   it('answer a cancelled request with RequestCancelled and no result, once it has started', async () => {
     await newVersion();
     const source = new CancellationTokenSource();
-    const outline = client.connection.sendRequest<DocumentSymbol[]>('textDocument/documentSymbol', { textDocument: { uri } }, source.token);
-    // Answered between two slices of the outline: the outline has started and is not done.
-    await hover();
+    const outline = errorCode(client.connection.sendRequest<DocumentSymbol[]>('textDocument/documentSymbol', { textDocument: { uri } }, source.token));
+    // The server takes requests in the order they come: the outline has started when the hover is
+    // answered. The cancel goes out with the hover, not once its answer is back: a client slowed
+    // by a loaded machine could otherwise send it after the last slice, and get the outline.
+    const answered = hover();
     source.cancel();
-    expect(await errorCode(outline)).toBe(LSPErrorCodes.RequestCancelled);
+    await answered;
+    expect(await outline).toBe(LSPErrorCodes.RequestCancelled);
   }, 120_000);
 
   it('answer a request cancelled while it waits for its note to be read at once, before the note is read', async () => {
@@ -81,9 +84,11 @@ describe('whole-note requests about a big note', () => {
     const waiting = errorCode(client.connection.sendRequest<Hover | null>('textDocument/hover', { textDocument: { uri: other }, position: { line: 1, character: 12 } }, source.token))
       .then((code) => { order.push('cancelled'); return code; });
     const read = client.diagnostics(other, undefined, 120_000).then(() => order.push('read'));
-    // The hover is in: the server answers requests in the order they come.
-    await hover();
+    // The hover is in: the server answers requests in the order they come. The cancel goes out
+    // with it, not once its answer is back, so that a slowed client does not send it too late.
+    const answered = hover();
     source.cancel();
+    await answered;
     expect(await waiting).toBe(LSPErrorCodes.RequestCancelled);
     await read;
     expect(order).toEqual(['cancelled', 'read']);
