@@ -1,4 +1,4 @@
-// `--stdin-name PATH` (check, export, fmt): the note read from `-` is reported, exported and keyed
+// `--stdin-name PATH` (check, export, fmt, show): the note read from `-` is reported, exported and keyed
 // under that path, and its pneumark.config.json is looked up from that path's folder, as for a
 // file there (which need not exist). Editors and pipelines pipe a buffer in and say what file it is.
 import { spawnSync } from 'node:child_process';
@@ -153,8 +153,43 @@ describe('--stdin-name names the note read from standard input', () => {
     expect(printed.out).toBe((await cli(['fmt', '-'], dir, NOTE)).out);
   });
 
-  it('is described by the help of check, export and fmt', () => {
-    for (const command of ['check', 'export', 'fmt']) expect(HELP[command], command).toMatch(/--stdin-name PATH/);
+  it('show: the heading names the note by that path, and its project file is read from that path\'s folder', async () => {
+    const dir = project('{ "gasUnit": "kPa" }');
+    const cwd = join(dir, 'elsewhere');
+    writeFileSync(join(dir, 'proj', 'ward', 'bed 4.pneu'), NOTE);
+    // Unnamed, outside the project: `<stdin>`, read in mmHg, PaCO2 5.3 doubted (PN204).
+    const unnamed = await cli(['show', '-'], cwd, NOTE);
+    expect(unnamed.out.split('\n')[0]).toMatch(/^<stdin> {2}2 timepoints {2}/);
+    expect(unnamed.out).toMatch(/PN204/);
+    // Named into the project (a file that does not exist there): read in kPa, as a note there is.
+    const named = await cli(['show', '-', '--stdin-name', '../proj/ward/new.pneu'], cwd, NOTE);
+    expect(named.code).toBe(0);
+    expect(named.err).toBe('');
+    expect(named.out.split('\n')[0]).toMatch(/^\.\.\/proj\/ward\/new\.pneu {2}2 timepoints/);
+    expect(named.out).not.toMatch(/PN204/);
+    expect(named.out).not.toContain('<stdin>');
+    // The same output as the file of that path gives (named as the working folder names it).
+    const fromFile = await cli(['show', 'proj/ward/bed 4.pneu'], dir);
+    const piped = await cli(['show', '-', '--stdin-name', 'proj/ward/bed 4.pneu'], dir, NOTE);
+    expect(piped.out).toBe(fromFile.out);
+    expect(piped.code).toBe(fromFile.code);
+    // The problems of that file are reported, as for a file there (exit 2).
+    writeFileSync(join(dir, 'proj', 'pneumark.config.json'), '{ "gasUnit": "kpa" }');
+    const bad = await cli(['show', '-', '--stdin-name', '../proj/ward/new.pneu'], cwd, NOTE);
+    expect(bad.code).toBe(2);
+    expect(bad.err).toMatch(/^pneumark: \.\.\/proj\/pneumark\.config\.json:1:3: `gasUnit`/);
+    // Messages about the note name it by that path too.
+    const binary = await cli(['show', '-', '--stdin-name', 'proj/ward/b.pneu'], dir, '@ 08:00\u0000\n');
+    expect(binary.code).toBe(2);
+    expect(binary.err).toBe('pneumark: proj/ward/b.pneu: looks like a binary file, not a note\n');
+    const blank = await cli(['show', '-', '--stdin-name', 'proj/ward/b.pneu'], dir, '\n\n');
+    expect(blank.code).toBe(2);
+    expect(blank.err).toMatch(/^pneumark: proj\/ward\/b\.pneu: /);
+  });
+
+  it('is described by the help of check, export, fmt and show', () => {
+    for (const command of ['check', 'export', 'fmt', 'show']) expect(HELP[command], command).toMatch(/--stdin-name PATH/);
+    expect(HELP.main).toMatch(/--stdin-name PATH \(check, export, fmt, show\)/);
     expect(HELP.main).toMatch(/--stdin-name without - among the inputs/);
   });
 });
@@ -164,6 +199,13 @@ describe('--stdin-name usage errors (exit 2, one line)', () => {
     ['without - among the inputs', ['check', 'a.pneu', '--stdin-name', 'b.pneu'], /^pneumark check: --stdin-name names the note read from standard input, and - is not among the inputs; add - or leave --stdin-name out$/],
     ['export without -', ['export', '--format', 'csv', 'a.pneu', '--stdin-name', 'b.pneu'], /^pneumark export: --stdin-name names the note read from standard input, and - is not among/],
     ['fmt without -', ['fmt', 'a.pneu', '--stdin-name', 'b.pneu'], /^pneumark fmt: --stdin-name names the note read from standard input, and - is not among/],
+    ['show without -', ['show', 'a.pneu', '--stdin-name', 'b.pneu'], /^pneumark show: --stdin-name names the note read from standard input, and - is not among the inputs; add - or leave --stdin-name out$/],
+    ['show: empty', ['show', '-', '--stdin-name', ''], /^pneumark show: --stdin-name: must not be empty .*\(got ""\)$/],
+    ['show: no value', ['show', '-', '--stdin-name'], /^pneumark show: --stdin-name needs a value$/],
+    ['show: standard input itself', ['show', '-', '--stdin-name', '-'], /^pneumark show: --stdin-name: names standard input itself/],
+    ['show: a folder', ['show', '-', '--stdin-name', 'ward/'], /^pneumark show: --stdin-name: ends in a slash: name a file, not a folder \(got "ward\/"\)$/],
+    ['show: a NUL character', ['show', '-', '--stdin-name', 'a\u0000.pneu'], /^pneumark show: --stdin-name: holds a NUL character/],
+    ['show: given twice', ['show', '-', '--stdin-name', 'a.pneu', '--stdin-name', 'b.pneu'], /^pneumark show: --stdin-name is given twice/],
     ['empty', ['check', '-', '--stdin-name', ''], /^pneumark check: --stdin-name: must not be empty .*\(got ""\)$/],
     ['no value', ['check', '-', '--stdin-name'], /^pneumark check: --stdin-name needs a value$/],
     ['standard input itself', ['check', '-', '--stdin-name', '-'], /^pneumark check: --stdin-name: names standard input itself/],

@@ -24,7 +24,7 @@ export const HELP: Readonly<Record<string, string>> = {
   main: `pneumark — checks, exports and formats structured respiratory notes (.pneu)
 
 Usage:
-  pneumark show FILE                   the note as Pneumark reads it: values, derived values, readings, findings
+  pneumark show FILE [options]         the note as Pneumark reads it: values, derived values, readings, findings
   pneumark check PATH... [options]     findings for notes
   pneumark export PATH... [options]    one row per timepoint (CSV, JSON Lines) or FHIR R4 bundles
   pneumark fmt PATH... [options]       canonical layout (the editor's formatter)
@@ -35,8 +35,9 @@ node_modules are skipped), a glob pattern in quotes ("notes/**/*.pneu"; its .pne
 too) or - for standard input. A path that exists is read as a path even when it holds [ ] or
 ( ). --exclude PATTERN and .pneuignore files leave notes out (gitignore syntax); a .pneuignore
 applies below its own folder, as a .gitignore does: the working folder's, and those in the
-folders on the way to each note. --stdin-name PATH (check, export, fmt) names the note read from
-- as the file PATH, which need not exist (--stdin-name without - among the inputs is a usage error).
+folders on the way to each note. --stdin-name PATH (check, export, fmt, show) names the note read
+from - as the file PATH, which need not exist (--stdin-name without - among the inputs is a usage
+error).
 Run \`pneumark COMMAND --help\` for a command's options.
 
 Exit codes: 0 clean; 1 findings at error level, more warnings than --max-warnings, or notes that
@@ -49,7 +50,7 @@ on with the defaults for that file), or standard output closed early (e.g. by he
 (a full disk).
 
 ${CAUTION}`,
-  show: `Usage: pneumark show FILE
+  show: `Usage: pneumark show FILE [--stdin-name PATH]
 
 Prints the note as Pneumark reads it (FILE may be - for standard input): a first line with the
 file, its number of timepoints and its findings by severity; the header (patient, place and
@@ -63,7 +64,12 @@ time, its label and its line number) with
   reading    what the values are consistent with
 and each finding (error, warning or info) under the line it belongs to. A legend at the end
 explains every short name and mark used above (P/F, *, (not used) ...), with names and units.
-Colour on a terminal; set NO_COLOR to turn it off. Exit code 1 when a finding is an error.`,
+Colour on a terminal; set NO_COLOR to turn it off. Exit code 1 when a finding is an error.
+
+Options:
+  --stdin-name PATH          with FILE -, the path of the note read from standard input: the first
+                             line names the note so, and pneumark.config.json is looked up from its
+                             folder, as for a file there (which need not exist)`,
   check: `Usage: pneumark check PATH... [options]
 
 Options:
@@ -156,7 +162,7 @@ export function wholeNumberOption(min: number, max: number, message: string, sig
 }
 
 /**
- * `--stdin-name PATH` (check, export, fmt): the path of the note read from `-`. Any path a file
+ * `--stdin-name PATH` (check, export, fmt, show): the path of the note read from `-`. Any path a file
  * could have, existing or not; not a folder's (ending in a slash), not `-`, and no NUL character,
  * which no path holds.
  */

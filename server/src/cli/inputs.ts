@@ -21,6 +21,9 @@ import { globSync, isDynamicPattern, type FileSystemAdapter } from 'tinyglobby';
 import { CONFIG_FILE_NAME } from '../core/config';
 import { globstarsIn, MAX_GLOBSTARS, refuseEmptyPaths, UsageError } from './args';
 
+/** The usage error of `--stdin-name` given while no input is `-`. */
+export const STDIN_NAME_WITHOUT_STDIN = '--stdin-name names the note read from standard input, and - is not among the inputs; add - or leave --stdin-name out';
+
 /** How a note read from standard input (`-`) is named in output, unless `--stdin-name` names it. */
 export const STDIN_NAME = '<stdin>';
 
@@ -86,7 +89,7 @@ type ExclusionSource = '--exclude' | typeof IGNORE_FILE;
  */
 export function listInputs(args: readonly string[], cwd: string, exclude: readonly string[] = [], stdinName: string | null = null): InputList {
   refuseEmptyPaths(args);
-  if (stdinName !== null && !args.includes('-')) throw new UsageError('--stdin-name names the note read from standard input, and - is not among the inputs; add - or leave --stdin-name out');
+  if (stdinName !== null && !args.includes('-')) throw new UsageError(STDIN_NAME_WITHOUT_STDIN);
   const problems: NoteInput[] = [];
   /** Each path found, with the arguments that brought it in (the first decides its root). */
   const found = new Map<string, ArgumentYield[]>();

@@ -19,7 +19,7 @@ import { renderSettingsTable, SETTINGS_END, SETTINGS_START } from '../core/setti
 import { colourWanted, paint, type Paint } from './colour';
 import { runExport, exportRenderer } from './export-command';
 import { runFmt } from './fmt-command';
-import { isBlankNote, listInputs, MAX_NOTE_BYTES, NO_NOTE, readNote, readUpTo, shownFilePath } from './inputs';
+import { isBlankNote, listInputs, MAX_NOTE_BYTES, NO_NOTE, readNote, readUpTo, shownFilePath, STDIN_NAME_WITHOUT_STDIN } from './inputs';
 import { aloneLimits } from './analyse-alone';
 import { gather, type BatchDone, type WorkDone, type WorkItem } from './pool';
 import { CheckJsonWriter, countOutcome, jsonFileEntryOrProblem, writeCheckSarif, writeCheckText, type FileOutcome } from './render-check';
@@ -60,12 +60,17 @@ export async function run(argv: readonly string[], io: Io): Promise<number> {
   }
 }
 
+const showOptions = z.object({ stdinName: stdinNameOption });
+
 function show(args: readonly string[], io: Io): number {
-  const { positionals, values } = parse(args, {});
+  const { positionals, values } = parse(args, { 'stdin-name': { type: 'string' } });
   if (values.help) { io.stdout.write(`${HELP.show}\n`); return EXIT.ok; }
+  const opts = validate(showOptions, { stdinName: values['stdin-name'] });
   if (positionals.length !== 1) throw new UsageError('show takes exactly one file (use `check` for several)');
   refuseEmptyPaths(positionals);
-  const note = readNote(positionals[0]!, io.cwd, io.stdin);
+  const stdinName = opts.stdinName === undefined ? null : shownFilePath(opts.stdinName, io.cwd);
+  if (stdinName !== null && positionals[0] !== '-') throw new UsageError(STDIN_NAME_WITHOUT_STDIN);
+  const note = readNote(positionals[0]!, io.cwd, io.stdin, { stdinName });
   if (note.text === null) {
     io.stderr.write(`pneumark: ${visible(note.path)}: ${visible(note.problem ?? '')}\n`);
     return EXIT.usage;
@@ -82,10 +87,10 @@ function show(args: readonly string[], io: Io): number {
     io.stderr.write(`pneumark: ${visible(note.path)}: too large to show (${sizeText(bytes)}; show takes notes up to ${sizeText(most)}): check or export it instead\n`);
     return EXIT.usage;
   }
-  const worker = new NoteWorker(io.cwd, {});
+  const worker = new NoteWorker(io.cwd, {}, null, stdinName);
   const result = checkNote(note.text, worker.settingsFor(positionals[0]!));
   io.stdout.write(`${renderShow(note.path, result, paint(colourWanted(io.stdout, io.env)))}\n\n${CAUTION}\n`);
-  if (reportConfigProblems(new ConfigReport(io.cwd).note(positionals[0]!), io)) return EXIT.usage;
+  if (reportConfigProblems(new ConfigReport(io.cwd, stdinName).note(positionals[0]!), io)) return EXIT.usage;
   return result.findings.some((f) => f.severity === 'error') ? EXIT.findings : EXIT.ok;
 }
 
