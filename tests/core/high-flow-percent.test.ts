@@ -141,3 +141,58 @@ describe('a percentage after other devices stays PN203', () => {
     expect(valuesOf(note('oxygen hfnc 40 L/min 50 L/min')).numberOf('o2_flow')).toBe(40);
   });
 });
+
+// A comma ends the numbers read after the device, as it does everywhere (`hfnc, 40 L/min` and
+// `mask, 8 L/min` are stray text too): after it each item is `key value`. So `hfnc 40 L/min, 60 %`
+// is not read as the FiO2; but a percentage on an oxygen line can only be the FiO2 (no other key
+// of the section takes %), so it is one finding (was two: the number and its `%`) whose message
+// says why, with a fix that writes its key.
+describe('a percentage after a comma on an oxygen line', () => {
+  it('`hfnc 40 L/min, 60 %`: one stray-text error on `60 %`, the fix writes `fio2 60 %`', () => {
+    const text = note('oxygen hfnc 40 L/min, 60 %');
+    const found = checkNote(text).findings.filter((f) => f.range.start.line === 2);
+    expect(found.map((f) => f.code)).toEqual(['PN105']);
+    const f = found[0]!;
+    expect(f.severity).toBe('error');
+    expect(f.range).toEqual({ start: { line: 2, character: 22 }, end: { line: 2, character: 26 } });
+    expect(f.message).toBe('`60 %` has no key: after `hfnc` a percentage is read as its FiO2 only among the numbers right after the device, before any comma. A percentage on an oxygen line can only be the FiO2: write `fio2 60 %`.');
+    expect(f.fixes.map((x) => x.title)).toEqual(['Write `fio2 60 %`']);
+    expect(f.fixes[0]!.preferred).toBe(true);
+    // Nothing is read from it until then: the flow is.
+    expect(valuesOf(text).numberOf('fio2')).toBeNull();
+    expect(valuesOf(text).numberOf('o2_flow')).toBe(40);
+    const fixed = applyEdits(text, f.fixes[0]!.edits);
+    expect(fixed.split('\n')[2]).toBe('oxygen hfnc 40 L/min, fio2 60 %');
+    expect(codesOn(fixed, 2)).toEqual([]);
+    expect(valuesOf(fixed).numberOf('fio2')).toBeCloseTo(0.6, 10);
+  });
+
+  it('glued (`60%`), after a bare flow, and after the FiO2 first', () => {
+    const glued = note('oxygen hfnc 40, 60%');
+    const f = checkNote(glued).findings.find((x) => x.range.start.line === 2)!;
+    expect(codesOn(glued, 2)).toEqual(['PN105']);
+    expect(f.message).toMatch(/^`60%` has no key: after `hfnc` /);
+    expect(applyEdits(glued, f.fixes[0]!.edits).split('\n')[2]).toBe('oxygen hfnc 40, fio2 60%');
+    expect(codesOn(note('oxygen highflow 40 L/min , 60 %'), 2)).toEqual(['PN105']);
+  });
+
+  it('after other devices, the same finding without the words about `hfnc`', () => {
+    const text = note('oxygen mask 8 L/min, 40 %');
+    const found = checkNote(text).findings.filter((f) => f.range.start.line === 2);
+    expect(found.map((f) => f.code)).toEqual(['PN105']);
+    expect(found[0]!.message).toBe('`40 %` has no key. A percentage on an oxygen line can only be the FiO2: write `fio2 40 %`.');
+    const fixed = applyEdits(text, found[0]!.fixes[0]!.edits);
+    expect(fixed.split('\n')[2]).toBe('oxygen mask 8 L/min, fio2 40 %');
+    expect(codesOn(fixed, 2)).toEqual([]);
+  });
+
+  it('a number after a comma in another unit, or none, stays as it was', () => {
+    expect(codesOn(note('oxygen hfnc 40 L/min, 60'), 2)).toEqual(['PN105']);
+    expect(checkNote(note('oxygen hfnc 40 L/min, 60')).findings.find((f) => f.code === 'PN105')!.message).toBe('`60` has no key; write it as `key value`, e.g. `hr 118`.');
+    expect(codesOn(note('oxygen hfnc, 40 L/min'), 2)).toEqual(['PN105', 'PN201']);
+    // Without a comma, a second percentage is no FiO2 either (the first one is): as before.
+    expect(codesOn(note('oxygen hfnc 60 % 40 %'), 2)).toEqual(['PN323', 'PN105', 'PN105']);
+    // On other lines a keyless percentage is no FiO2.
+    expect(codesOn(`@ day 1 08:00\nvitals hr 80, 94 %\n`, 1)).toEqual(['PN105', 'PN105']);
+  });
+});

@@ -1580,6 +1580,34 @@ function highFlowPercentIssue(device: string, source: string, item: Item, offerF
   };
 }
 
+/** The device an oxygen line names among its first `count` items (as written), or null. */
+function deviceOf(items: readonly (Item | undefined)[], count: number): string | null {
+  for (let k = 0; k < count; k++) {
+    const item = items[k]!;
+    if (item.keyName === 'device' && item.value?.kind === 'word') return item.value.text;
+  }
+  return null;
+}
+
+/**
+ * A number in % without a key after a comma on an oxygen line (`hfnc 40 L/min, 60 %`): a comma
+ * ends the numbers read after the device, as it does everywhere, so it is not read; but no key of
+ * the section but `fio2` takes %, so it is one finding (not one for the number and one for its
+ * unit) with a fix that writes that key. After `hfnc`, where it would have been read as the FiO2
+ * without the comma, the message says so.
+ */
+function percentAfterCommaIssue(source: string, start: number, end: number, device: string | null): SyntaxIssue {
+  const written = source.slice(start, end);
+  const highFlow = device !== null && canonicalWord(fieldFor('oxygen', 'device')!, device) === 'hfnc';
+  const why = highFlow ? `: after \`${device}\` a percentage is read as its FiO2 only among the numbers right after the device, before any comma.` : '.';
+  return {
+    check: 'stray-text',
+    span: { start, end },
+    message: `\`${written}\` has no key${why} A percentage on an oxygen line can only be the FiO2: write \`fio2 ${written}\`.`,
+    fixes: [{ title: `Write \`fio2 ${written}\``, edits: [{ span: { start, end: start }, newText: 'fio2 ' }], preferred: true }],
+  };
+}
+
 /** `source` is the text of the line (spans and numbers' texts refer to it). */
 function parseItems(section: SectionId, chunks: readonly Word[], start: number, issues: SyntaxIssue[], source: string): readonly ItemNode[] {
   let i = start;
@@ -1672,6 +1700,15 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
         // The inches' unit (`in`) is part of what the finding names: no unknown key of its own.
         while (i < n && chunks[i]!.start < feet.span.end) i++;
         continue;
+      }
+      if (section === 'oxygen' && chunk.afterComma) {
+        const length = numberChunk(chunk);
+        const unit = length > 0 ? unitAfter(gluedUnit(chunk, length), chunks, i + 1, section, source) : null;
+        if (isPercent(unit)) {
+          issues.push(percentAfterCommaIssue(source, chunk.start, unit!.end, deviceOf(items, count)));
+          i += 1 + UNIT_CHUNKS;
+          continue;
+        }
       }
       const bilevel = section === 'oxygen' ? bilevelPairKeys(chunk, chunks, i, items, count) : null;
       issues.push({
