@@ -44,6 +44,17 @@ describe('the age-based upper normal A–a gradient is for adults (rules made in
     expect(labels).toMatch(/A–a 45(?! \()/);
   });
 
+  it('`show` and the hover of the PaO2 say why it is not given', async () => {
+    const text = note('age 8 y', 'abg 7.40/40/55/24.4');
+    const { renderShow } = await import('../../server/src/cli/render-show');
+    const { paint } = await import('../../server/src/cli/colour');
+    expect(renderShow('child.pneu', checkNote(text), paint(false))).toContain('n/a      A–a normal ≤: the age rules were made in adults (18 years or more): no upper normal at age 8 y');
+    const { hoverAt } = await import('../../server/src/core/service');
+    const po2 = text.split('\n')[3]!.indexOf('55');
+    const hover = hoverAt(checkNote(text), { line: 3, character: po2 });
+    expect(hover?.markdown ?? '').toContain('Not worked out here: A–a normal ≤ — the age rules were made in adults (18 years or more): no upper normal at age 8 y.');
+  });
+
   it('is given from 18 years', () => {
     expect(PBW_ADULT_FROM_YEARS).toBe(18);
     // 18 / 4 + 4 = 8.5 mmHg.

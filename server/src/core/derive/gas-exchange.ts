@@ -184,7 +184,7 @@ export const aaGradientUpperNormalDef = defineDerived({
   compute(c) {
     const age = c.field('age', 'age');
     if (!age) return c.missing([age, 'age (patient line)']);
-    if (isUnderAdultAge(age.value)) return { kind: 'na', reason: `${AA_RULES_FOR_ADULTS}: no upper normal at age ${formatShort(age.value)} y` };
+    if (isUnderAdultAge(age.value)) return { kind: 'na', reason: `${AA_RULES_FOR_ADULTS}: no upper normal at age ${formatShort(age.value)} y`, explained: true };
     const upper = aaGradientUpperNormal(age.value, c.settings.aaGradientRule);
     // Shown beside the gradient: with the decimals that keep the gradient on its side of it (A–a 11.8 above 11.5, not 12 and 12).
     const gradient = c.derivedValue('aa_gradient')?.value;
