@@ -46,7 +46,7 @@ import type { ReadIssue } from './read-issues';
 import { readItem, type ReadContext } from './read-value';
 import { NONE } from '../util/lists';
 import { compact } from '../util/numbers';
-import { formatNumber } from '../util/format';
+import { formatNumber, writtenDecimals } from '../util/format';
 
 interface Held {
   readonly stated: StatedValue;
@@ -731,11 +731,7 @@ function writtenStep(s: StatedValue): number {
   const n = s.item.number;
   const v = s.value;
   if (n === null || v === null || n === 0) return 0;
-  const text = s.item.value?.text ?? '';
-  let point = text.indexOf('.');
-  if (point < 0) point = text.indexOf(',');
-  const decimals = point < 0 ? 0 : text.length - point - 1;
-  return Math.abs(v / n) * 10 ** -decimals;
+  return Math.abs(v / n) * 10 ** -writtenDecimals(s.item.value?.text ?? '');
 }
 
 /** Decimals that show a number of this step (at least 2, as FiO2 is shown). */

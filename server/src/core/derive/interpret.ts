@@ -450,8 +450,9 @@ function mechanism(g: GasFacts): Interpretation {
   const limitShown = gas.limit(limit, gradient.value);
   // Without an age-based limit: the age is unknown, or a child's (the age rules were made in adults).
   const age = upper ? null : c.field('age');
-  const noAgeLimit = upper ? '' : age && isUnderAdultAge(age.value) ? `no age-based normal under ${ADULT_FROM_YEARS} years` : 'age unknown';
-  if (raised) causes.push(`a raised A–a gradient (${gradientShown}, above ${limitShown}${age && noAgeLimit !== 'age unknown' ? `; ${noAgeLimit}` : ''}): V/Q mismatch, shunt or a diffusion limit`);
+  const child = age !== null && isUnderAdultAge(age.value);
+  const noAgeLimit = child ? `no age-based normal under ${ADULT_FROM_YEARS} years` : 'age unknown';
+  if (raised) causes.push(`a raised A–a gradient (${gradientShown}, above ${limitShown}${child ? `; ${noAgeLimit}` : ''}): V/Q mismatch, shunt or a diffusion limit`);
   const normalGradient = raised ? '' : ` The A–a gradient (${gradientShown}) is within the ${upper ? 'age-based ' : ''}normal of ${limitShown}${upper ? '' : ` (${noAgeLimit})`}.`;
   const fio2 = c.fio2();
   const onOxygen = (fio2?.value ?? 0.21) > 0.21 + 1e-9;

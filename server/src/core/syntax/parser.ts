@@ -1556,6 +1556,11 @@ function venturiSettingIssue(device: string, number: string, start: number, end:
   };
 }
 
+/** Whether a device word names a high-flow device (`hfnc`, or one of its aliases such as `highflow`). */
+function isHighFlowDevice(section: SectionId, word: string): boolean {
+  return canonicalWord(fieldFor(section, 'device')!, word) === 'hfnc';
+}
+
 /** Whether a unit is written as a percentage (`%`). */
 function isPercent(unit: Located | null): boolean {
   return unit !== null && unitsForSpelling(unit.text).some((u) => u.id === '%');
@@ -1598,7 +1603,7 @@ function deviceOf(items: readonly (Item | undefined)[], count: number): string |
  */
 function percentAfterCommaIssue(source: string, start: number, end: number, device: string | null): SyntaxIssue {
   const written = source.slice(start, end);
-  const highFlow = device !== null && canonicalWord(fieldFor('oxygen', 'device')!, device) === 'hfnc';
+  const highFlow = device !== null && isHighFlowDevice('oxygen', device);
   const why = highFlow ? `: after \`${device}\` a percentage is read as its FiO2 only among the numbers right after the device, before any comma.` : '.';
   return {
     check: 'stray-text',
@@ -1662,7 +1667,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
           const unit = unitAfter(gluedUnit(next, length), chunks, i, section, source);
           i += UNIT_CHUNKS;
           const deviceWord = lowerCase(dev.text);
-          const highFlow = deviceWord !== 'cpap' && deviceWord !== 'venturi' && canonicalWord(fieldFor(section, 'device')!, dev.text) === 'hfnc';
+          const highFlow = deviceWord !== 'cpap' && deviceWord !== 'venturi' && isHighFlowDevice(section, dev.text);
           const percent = highFlow && isPercent(unit);
           const keyName = deviceWord === 'cpap' ? 'level' : deviceWord === 'venturi' ? venturiNumberKey(number, unit) : percent ? 'fio2' : 'flow';
           if (keyName === 'fio2' && unit === null && number > 1) issues.push(venturiSettingIssue(dev.text, source.slice(next.start, next.start + length), next.start, next.start + length));
