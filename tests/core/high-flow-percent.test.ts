@@ -135,7 +135,11 @@ describe('a percentage after other devices stays PN203', () => {
   });
 
   it('and a second number after another device stays stray text', () => {
-    expect(codesOn(note('oxygen mask 10 L/min 40 %'), 2)).toEqual(['PN105', 'PN105']);
+    // One finding over the number and its `%`, with a fix that writes `fio2` (was two, the number
+    // and its unit): tests/core/percent-after-low-flow.test.ts.
+    expect(codesOn(note('oxygen mask 10 L/min 40 %'), 2)).toEqual(['PN105']);
+    expect(valuesOf(note('oxygen mask 10 L/min 40 %')).numberOf('fio2')).toBeNull();
+    expect(codesOn(note('oxygen mask 10 L/min 40'), 2)).toEqual(['PN105']);
     // Two flows after `hfnc`: the second is no FiO2, and stays stray text (its unit an unknown key).
     expect(codesOn(note('oxygen hfnc 40 L/min 50 L/min'), 2)).toEqual(['PN105', 'PN201']);
     expect(valuesOf(note('oxygen hfnc 40 L/min 50 L/min')).numberOf('o2_flow')).toBe(40);

@@ -1613,6 +1613,31 @@ function percentAfterCommaIssue(source: string, start: number, end: number, devi
   };
 }
 
+/** What a device set by its oxygen flow is, as a message names it (`percentAfterFlowIssue`), by its canonical word. */
+const SET_BY_FLOW: Readonly<Record<string, string>> = { cannula: 'a nasal cannula', mask: 'a simple mask', reservoir: 'a reservoir mask' };
+
+/**
+ * A percentage right after the number of a device that is set by neither its FiO2 nor a
+ * percentage (`mask 10 L/min 40 %`, `cannula 2 L/min 28%`, `cpap 8 40 %`): not read, since only the
+ * number right after the device is read without a key, and a cannula or a simple or reservoir mask
+ * is set by its oxygen flow, the FiO2 it gives not fixed (common practice, no source). One finding
+ * over the number and its unit (not one for each), with a fix that writes `fio2`, the only key of
+ * the section that takes %; as `percentAfterCommaIssue` does after a comma.
+ */
+function percentAfterFlowIssue(source: string, start: number, end: number, device: string): SyntaxIssue {
+  const written = source.slice(start, end);
+  const setByFlow = SET_BY_FLOW[canonicalWord(fieldFor('oxygen', 'device')!, device) ?? ''];
+  const message = setByFlow !== undefined
+    ? `\`${written}\` after the flow of \`${device}\` is not read: ${setByFlow} is set by its oxygen flow, a percentage is not one of its settings, and the FiO2 it gives is not fixed. If it is an FiO2 measured or worked out, write \`fio2 ${written}\`.`
+    : `\`${written}\` after the number of \`${device}\` is not read: only the number right after the device is read without a key. A percentage on an oxygen line can only be the FiO2: write \`fio2 ${written}\`.`;
+  return {
+    check: 'stray-text',
+    span: { start, end },
+    message,
+    fixes: [{ title: `Write \`fio2 ${written}\``, edits: [{ span: { start, end: start }, newText: 'fio2 ' }], preferred: true }],
+  };
+}
+
 /** `source` is the text of the line (spans and numbers' texts refer to it). */
 function parseItems(section: SectionId, chunks: readonly Word[], start: number, issues: SyntaxIssue[], source: string): readonly ItemNode[] {
   let i = start;
@@ -1650,6 +1675,9 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
     }
   }
 
+  // Where the numbers read after a device that is set by neither its FiO2 nor a percentage end
+  // (`mask 10 L/min`): a percentage right there is reported as one finding (`percentAfterFlowIssue`).
+  let afterDeviceNumber = -1;
   // Oxygen device first: oxygen cannula 4 L/min, oxygen room air
   if (section === 'oxygen') {
     const dev = deviceWordAt(chunks, start);
@@ -1672,6 +1700,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
           const keyName = deviceWord === 'cpap' ? 'level' : deviceWord === 'venturi' ? venturiNumberKey(number, unit) : percent ? 'fio2' : 'flow';
           if (keyName === 'fio2' && unit === null && number > 1) issues.push(venturiSettingIssue(dev.text, source.slice(next.start, next.start + length), next.start, next.start + length));
           items[count++] = numberItem(null, keyName, 'device-flow', fieldFor(section, keyName) ?? null, source, number, next.start + length, comma, unit, next.start);
+          if (!highFlow && deviceWord !== 'venturi') afterDeviceNumber = i;
           if (highFlow) {
             // `hfnc 40 L/min 60 %`, `hfnc 60 % 40 L/min`: a flow and a percentage, each without its key.
             const second = chunks[i];
@@ -1706,11 +1735,11 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
         while (i < n && chunks[i]!.start < feet.span.end) i++;
         continue;
       }
-      if (section === 'oxygen' && chunk.afterComma) {
+      if (section === 'oxygen' && (chunk.afterComma || i === afterDeviceNumber)) {
         const length = numberChunk(chunk);
         const unit = length > 0 ? unitAfter(gluedUnit(chunk, length), chunks, i + 1, section, source) : null;
         if (isPercent(unit)) {
-          issues.push(percentAfterCommaIssue(source, chunk.start, unit!.end, deviceOf(items, count)));
+          issues.push(chunk.afterComma ? percentAfterCommaIssue(source, chunk.start, unit!.end, deviceOf(items, count)) : percentAfterFlowIssue(source, chunk.start, unit!.end, deviceOf(items, count)!));
           i += 1 + UNIT_CHUNKS;
           continue;
         }
