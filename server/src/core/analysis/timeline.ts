@@ -36,7 +36,7 @@
 import { FIELDS, type FieldDef } from '../fields/registry';
 import { sectionById, type SectionId } from '../fields/sections';
 import type { Settings } from '../settings';
-import type { ItemNode, LineNode, NoteTree, SectionLine, Span, TimepointLine } from '../syntax/tree';
+import type { ItemNode, LineEdit, LineFix, LineNode, NoteTree, SectionLine, Span, TimepointLine } from '../syntax/tree';
 import { MAX_DAY } from '../syntax/parser';
 import { OSCILLATION_MODE } from '../physiology/mechanics';
 import { barometricFromAltitude } from './ambient';
@@ -351,7 +351,28 @@ class Relocator {
           related.push({ ...r, line: at, message: words });
         }
       }
-      out.push(related ? { ...issue, line, message, related } : { ...issue, line, message });
+      const fixes = this.fixes(issue.fixes);
+      if (fixes === null) return null;
+      out.push(related ? { ...issue, line, message, related, fixes } : { ...issue, line, message, fixes });
+    }
+    return out;
+  }
+
+  /** Fixes moved: the lines an edit names (another line than its finding's), or null where one cannot be. */
+  private fixes(fixes: readonly LineFix[]): readonly LineFix[] | null {
+    let moves = false;
+    for (const fix of fixes) for (const e of fix.edits) if (e.line !== undefined || e.endLine !== undefined) moves = true;
+    if (!moves) return fixes;
+    const out: LineFix[] = [];
+    for (const fix of fixes) {
+      const edits: LineEdit[] = [];
+      for (const e of fix.edits) {
+        const line = e.line === undefined ? undefined : shiftedLine(this.shift, e.line);
+        const endLine = e.endLine === undefined ? undefined : shiftedLine(this.shift, e.endLine);
+        if (line === null || endLine === null) return null;
+        edits.push({ span: e.span, newText: e.newText, ...(line === undefined ? {} : { line }), ...(endLine === undefined ? {} : { endLine }) });
+      }
+      out.push({ ...fix, edits });
     }
     return out;
   }
@@ -507,8 +528,12 @@ function processBlock(lines: readonly LineNode[], start: number, end: number, in
     const from = inHeader ? into.length : count;
     const to = readLine(node, context.read, issues, into, from);
     if (!inHeader) count = to;
-    if (to > from) duplicates(into, from, to, inHeader ? seenInHeader : seenAtTimepoint, inHeader, issues, node.items);
-    apply(node.section, into, from, to, inHeader ? -1 : index, inHeader ? 'header' : tpLabel!, mutable);
+    const paired = to > from ? duplicates(into, from, to, inHeader ? seenInHeader : seenAtTimepoint, inHeader, issues, lines, mutable.oxygen) : null;
+    if (paired !== null) {
+      // The FiO2 of a device on one oxygen line and a `fio2` on another: the two lines state one therapy.
+      mutable.oxygen = holdPaired(mutable.oxygen, into, from, to, index, tpLabel!);
+      mutable.vent = EMPTY;
+    } else apply(node.section, into, from, to, inHeader ? -1 : index, inHeader ? 'header' : tpLabel!, mutable);
   }
   SEEN_IN_HEADER.reset();
   SEEN_AT_TIMEPOINT.reset();
@@ -645,22 +670,34 @@ const SEEN_AT_TIMEPOINT = new FirstSeen();
 
 /**
  * The same field twice in one section at one timepoint (or in the header): the later value wins,
- * the first is named.
+ * the first is named. The FiO2 read from the number after a device (`venturi 28`, `hfnc 60 %`) and
+ * a `fio2` written are compared instead (`deviceFio2Conflict`): on one line, and on two oxygen lines
+ * of the timepoint (`pairsAcrossLines`). Returns the `fio2` written where the second of two such
+ * lines is `stated[from, to)` and the two were compared (they state one therapy: `holdPaired`).
  */
-function duplicates(stated: readonly (StatedValue | undefined)[], from: number, to: number, seen: FirstSeen, inHeader: boolean, issues: ReadIssue[], items: readonly ItemNode[]): void {
+function duplicates(stated: readonly (StatedValue | undefined)[], from: number, to: number, seen: FirstSeen, inHeader: boolean, issues: ReadIssue[], lines: readonly LineNode[], heldOxygen: HeldMap): StatedValue | null {
+  let paired: StatedValue | null = null;
   for (let k = from; k < to; k++) {
     const s = stated[k]!;
     const earlier = seen.earlier(s);
     if (!earlier) continue;
-    if (earlier.item.implied === 'device-flow' && s.item.implied === null && s.fieldId === 'fio2' && earlier.line === s.line) {
-      // `oxygen venturi 28, fio2 0.28`: the FiO2 read from the number after the device, then the
-      // `fio2` written on the same line. Later `fio2`s are compared with the one written.
-      seen.replace(s);
-      const conflict = deviceFio2Conflict(earlier, s, items);
-      if (conflict === 'agree') continue;
-      if (conflict !== 'unread') {
-        issues.push(conflict);
-        continue;
+    if (s.fieldId === 'fio2' && s.section === 'oxygen') {
+      // `oxygen venturi 28, fio2 0.28`, or the two on lines of their own: the FiO2 read from the
+      // number after the device, and a `fio2` written. Later `fio2`s are compared with the one
+      // written; one written above the device's line only while it is the one in force.
+      const device = earlier.item.implied === 'device-flow' && s.item.implied === null ? earlier
+        : earlier.item.implied === null && s.item.implied === 'device-flow' && heldOxygen.get('fio2')?.stated === earlier ? s
+        : null;
+      const written = device === earlier ? s : earlier;
+      if (device !== null && (device.line === written.line || pairsAcrossLines(lines[device.line]!, lines[written.line]!))) {
+        if (device === earlier) seen.replace(s);
+        const conflict = deviceFio2Conflict(device, written, lines);
+        if (conflict !== 'unread' && device.line !== written.line) paired = written;
+        if (conflict === 'agree') continue;
+        if (conflict !== 'unread') {
+          issues.push(conflict);
+          continue;
+        }
       }
     }
     issues.push({
@@ -673,24 +710,80 @@ function duplicates(stated: readonly (StatedValue | undefined)[], from: number, 
       related: [{ line: earlier.line, span: earlier.item.span, message: 'first stated here' }],
     });
   }
+  return paired;
+}
+
+/**
+ * Whether the FiO2 read after the device of one oxygen line and a `fio2` on another oxygen line of
+ * its timepoint state one FiO2 twice (`oxygen venturi 28`, then `oxygen fio2 0.28`, or the other way
+ * round): where the line of the `fio2` names no device of its own (with one, it states another
+ * therapy, and replaces the first as any oxygen line does), and the device's line writes no `fio2`
+ * of its own (it is compared with that one). A `fio2` on a vent line is the ventilator's (PN311
+ * reports the overlap).
+ */
+export function pairsAcrossLines(deviceLine: LineNode, writtenLine: LineNode): boolean {
+  return deviceLine.kind === 'section' && writtenLine.kind === 'section' && deviceLine.section === 'oxygen' && writtenLine.section === 'oxygen' &&
+    !namesDevice(writtenLine.items) && !writesFio2(deviceLine.items);
+}
+
+/** Whether the items of an oxygen line name a device (`oxygen mask …`). */
+function namesDevice(items: readonly ItemNode[]): boolean {
+  for (let k = 0; k < items.length; k++) if (items[k]!.implied === 'device') return true;
+  return false;
+}
+
+/** Whether the items of a line write a `fio2` with its key. */
+export function writesFio2(items: readonly ItemNode[]): boolean {
+  for (let k = 0; k < items.length; k++) if (items[k]!.implied === null && items[k]!.field?.id === 'fio2') return true;
+  return false;
+}
+
+/**
+ * The oxygen held after the second of two oxygen lines of a timepoint that state one FiO2, the
+ * device's and a `fio2` written (`pairsAcrossLines`): both lines, as one (what the first held at
+ * this timepoint, then `stated[from, to)`), the `fio2` written in force whichever line is first
+ * (the FiO2 read after the device is not held).
+ */
+function holdPaired(base: HeldMap, stated: readonly (StatedValue | undefined)[], from: number, to: number, tp: number, label: string): HeldMap {
+  const next = new Map<string, Held>();
+  base.forEach(copyHereInto, new HereInto(next, tp));
+  for (let k = from; k < to; k++) {
+    const s = stated[k]!;
+    if (s.hereOnly || (s.fieldId === 'fio2' && s.item.implied === 'device-flow')) continue;
+    next.set(s.fieldId, new HeldValue(s, tp, label));
+  }
+  return next;
+}
+
+/** Where `copyHereInto` copies to, and the timepoint whose values it copies. */
+class HereInto {
+  constructor(readonly map: Map<string, Held>, readonly tp: number) {}
+}
+
+function copyHereInto(this: HereInto, held: Held, id: string): void {
+  if (held.timepoint === this.tp) this.map.set(id, held);
 }
 
 /**
  * An FiO2 read from the number after the device (`device`: the Venturi setting `venturi 28`, or a
- * percentage after `hfnc`) and the `fio2` written on the same line (`written`). 'agree' where the two
- * agree: the same fraction at the precision of the less precise of the two as written (`venturi
- * 28, fio2 0.28`, and `fio2 0.3`, 28 % to one decimal; not `fio2 0.29`); that states the FiO2 once,
- * and the `fio2` written is the one used. Else the duplicate, naming both values, where each comes
- * from and which is used (the `fio2`, the later, as for any value stated twice), with a fix that
- * keeps each; 'unread' where a value is missing (a unit not allowed), for the plain duplicate.
+ * percentage after `hfnc`) and a `fio2` written (`written`), on the same line or on two oxygen lines
+ * of one timepoint (`pairsAcrossLines`). 'agree' where the two agree: the same fraction at the
+ * precision of the less precise of the two as written (`venturi 28, fio2 0.28`, and `fio2 0.3`, 28 %
+ * to one decimal; not `fio2 0.29`); that states the FiO2 once, and the `fio2` written is the one
+ * used. Else the duplicate, naming both values, where each comes from (their lines, where they are
+ * two) and which is used (the `fio2` written: on one line the later, as for any value stated twice,
+ * and on two lines whichever comes first), with a fix that keeps each; 'unread' where a value is
+ * missing (a unit not allowed), for the plain duplicate.
  */
-function deviceFio2Conflict(device: StatedValue, written: StatedValue, items: readonly ItemNode[]): ReadIssue | 'agree' | 'unread' {
+function deviceFio2Conflict(device: StatedValue, written: StatedValue, lines: readonly LineNode[]): ReadIssue | 'agree' | 'unread' {
   const a = device.value;
   const b = written.value;
   if (a === null || b === null) return 'unread';
   const stepA = writtenStep(device);
   const stepB = writtenStep(written);
   if (Math.abs(a - b) < Math.max(stepA, stepB) / 2 - 1e-9) return 'agree';
+  const deviceLine = lines[device.line] as SectionLine;
+  const items = deviceLine.items;
   const at = items.indexOf(device.item);
   let w = at - 1;
   while (w >= 0 && items[w]!.implied !== 'device') w--;
@@ -702,18 +795,64 @@ function deviceFio2Conflict(device: StatedValue, written: StatedValue, items: re
   const used = written.usable
     ? `The \`${written.item.key?.text ?? 'fio2'}\` written (${formatNumber(b, decimalsOf(stepB))}) is used`
     : `The \`${written.item.key?.text ?? 'fio2'}\` written replaces ${venturi ? 'the setting' : 'the percentage'}, but is not used itself (see its finding)`;
-  const before = items[items.indexOf(written.item) - 1];
+  const kept = venturi ? `the Venturi setting \`${deviceText}\`` : `\`${deviceText}\``;
+  const related = [{ line: device.line, span: device.item.span, message: venturi ? 'the Venturi setting, read as the FiO2' : 'the percentage after the device, read as the FiO2' }];
+  if (device.line === written.line) {
+    const before = items[items.indexOf(written.item) - 1];
+    return {
+      check: 'duplicate-key',
+      line: written.line,
+      span: written.item.key?.span ?? written.item.span,
+      message: `FiO2 is stated twice on this line, and the two disagree: ${named} gives ${formatNumber(a, decimalsOf(stepA))}, and \`${writtenText}\` gives ${formatNumber(b, decimalsOf(stepB))}. ${used}; keep the one that was given.`,
+      fixes: [
+        { title: `Keep \`${writtenText}\` (remove ${kept})`, edits: [{ span: { start: at > 0 ? items[at - 1]!.span.end : device.item.span.start, end: device.item.span.end }, newText: '' }] },
+        { title: `Keep ${kept} (remove \`${writtenText}\`)`, edits: [{ span: { start: before !== undefined ? before.span.end : written.item.span.start, end: written.item.span.end }, newText: '' }] },
+      ],
+      related,
+    };
+  }
+  // On two lines: each fix leaves one line that states the FiO2 once. Keeping the `fio2` writes it
+  // where the device's number was (`oxygen venturi fio2 0.35`); keeping the device's number writes
+  // it with its key where it was said to be read as the FiO2 (PN321, PN323), so nothing is left to say.
+  const removal = removalOf(written, lines);
+  const said = deviceLine.issues.some((i) => (i.check === 'venturi-setting' || i.check === 'high-flow-percent') && i.span.start === device.item.span.start);
+  const asKey = `fio2 ${deviceText}${device.item.unit === null ? ' %' : ''}`;
+  const keepDevice: LineEdit[] = said ? [{ span: { start: device.item.span.start, end: device.item.span.start }, newText: 'fio2 ', line: device.line }] : [];
+  if (said && device.item.unit === null) keepDevice.push({ span: { start: device.item.span.end, end: device.item.span.end }, newText: ' %', line: device.line });
   return {
     check: 'duplicate-key',
     line: written.line,
     span: written.item.key?.span ?? written.item.span,
-    message: `FiO2 is stated twice on this line, and the two disagree: ${named} gives ${formatNumber(a, decimalsOf(stepA))}, and \`${writtenText}\` gives ${formatNumber(b, decimalsOf(stepB))}. ${used}; keep the one that was given.`,
+    message: `FiO2 is stated twice at this timepoint, and the two disagree: ${named} (line ${device.line + 1}) gives ${formatNumber(a, decimalsOf(stepA))}, and \`${writtenText}\` (line ${written.line + 1}) gives ${formatNumber(b, decimalsOf(stepB))}. ${used}; keep the one that was given.`,
     fixes: [
-      { title: `Keep \`${writtenText}\` (remove ${venturi ? `the Venturi setting \`${deviceText}\`` : `\`${deviceText}\``})`, edits: [{ span: { start: at > 0 ? items[at - 1]!.span.end : device.item.span.start, end: device.item.span.end }, newText: '' }] },
-      { title: `Keep ${venturi ? `the Venturi setting \`${deviceText}\`` : `\`${deviceText}\``} (remove \`${writtenText}\`)`, edits: [{ span: { start: before !== undefined ? before.span.end : written.item.span.start, end: written.item.span.end }, newText: '' }] },
+      { title: `Keep \`${writtenText}\` (remove ${kept})`, edits: ordered(removal, [{ span: device.item.span, newText: writtenText, line: device.line }]) },
+      { title: said ? `Keep ${kept} as \`${asKey}\` (remove \`${writtenText}\`)` : `Keep ${kept} (remove \`${writtenText}\`)`, edits: ordered(removal, keepDevice) },
     ],
-    related: [{ line: device.line, span: device.item.span, message: venturi ? 'the Venturi setting, read as the FiO2' : 'the percentage after the device, read as the FiO2' }],
+    related,
   };
+}
+
+/** The removal of the `fio2` written and the edits of the device's line, in the order of the text. */
+function ordered(removal: LineEdit, others: LineEdit[]): LineEdit[] {
+  const other = others[0];
+  return other === undefined || removal.line! < other.line! ? [removal, ...others] : [...others, removal];
+}
+
+/**
+ * The edit that removes a `fio2` written on a line of its own: the whole line where it says nothing
+ * else (a comment is something), else the item with the separator before it (or after it, where it
+ * is the first item), or with the blanks after the section word.
+ */
+function removalOf(written: StatedValue, lines: readonly LineNode[]): LineEdit {
+  const node = lines[written.line] as SectionLine;
+  const items = node.items;
+  const k = items.indexOf(written.item);
+  const item = written.item;
+  const line = written.line;
+  if (items.length === 1 && node.text.slice(item.span.end).trim() === '') return { span: { start: 0, end: 0 }, newText: '', line, endLine: line + 1 };
+  if (k > 0) return { span: { start: items[k - 1]!.span.end, end: item.span.end }, newText: '', line };
+  if (k + 1 < items.length) return { span: { start: item.span.start, end: items[k + 1]!.span.start }, newText: '', line };
+  return { span: { start: node.sectionToken.span.end, end: item.span.end }, newText: '', line };
 }
 
 /** An item as written, from its key (if any) to its unit (if any). */

@@ -94,7 +94,7 @@ export function headerLineCount(analysis: NoteAnalysis): number {
  * Visits a timepoint's lines (by index: no copy of the list per check and timepoint). `visit`
  * receives the context, so a check defines it once rather than once per timepoint.
  */
-export function forTimepointLines(ctx: TimepointContext, visit: (ctx: CheckContext, node: LineNode) => void): void {
+export function forTimepointLines(ctx: TimepointContext, visit: (ctx: TimepointContext, node: LineNode) => void): void {
   const lines = ctx.analysis.tree.lines;
   const end = Math.min(ctx.timepoint.endLine + 1, lines.length);
   for (let i = ctx.timepoint.startLine; i < end; i++) visit(ctx, lines[i]!);

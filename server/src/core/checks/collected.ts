@@ -3,8 +3,9 @@
  * value reader record the problem under the check's alias, and these checks report it.
  */
 import type { ReadCheckAlias } from '../analysis/read-issues';
+import { pairsAcrossLines, writesFio2 } from '../analysis/timeline';
 import { lineFixesToFixes, toRange, type LineNode, type SyntaxCheckAlias, type SyntaxIssue } from '../syntax/tree';
-import { defineCheck, forHeaderLines, forTimepointLines, type CheckContext, type CheckDef, type CheckDoc, type CheckTag } from './check';
+import { defineCheck, forHeaderLines, forTimepointLines, type CheckContext, type CheckDef, type CheckDoc, type CheckTag, type TimepointContext } from './check';
 import type { Severity } from '../types';
 
 const FORMAT_RULE = 'format rule (grammar/README.md)';
@@ -97,7 +98,7 @@ export const venturiSetting = defineCheck({
   severity: 'information',
   tags: ['plausibility'],
   doc: {
-    fires: 'The number right after `venturi` on an oxygen line is written bare and is one of the oxygen percentages of the Venturi settings, 24 to 60 (`oxygen venturi 28`). A Venturi mask is set by the oxygen fraction it gives, at a flow of some 2 to 15 L/min the device names, so the number is read as the FiO2 in % (28 %), not as a flow of 28 L/min, and used as a stated FiO2 (P/F, A–a gradient). Not reported where the number can only be the FiO2 or only a flow, and read as such: a fraction up to 1 (`venturi 0.4`) or a percentage (`venturi 40 %`) is the FiO2, a number in L/min (`venturi 8 L/min`) or any other bare number (`venturi 8`) the flow. Nor where the line writes a `fio2` too (`venturi 28, fio2 0.28`), which says what the number is: where the two agree the FiO2 is stated once, and where they disagree PN206 names both.',
+    fires: 'The number right after `venturi` on an oxygen line is written bare and is one of the oxygen percentages of the Venturi settings, 24 to 60 (`oxygen venturi 28`). A Venturi mask is set by the oxygen fraction it gives, at a flow of some 2 to 15 L/min the device names, so the number is read as the FiO2 in % (28 %), not as a flow of 28 L/min, and used as a stated FiO2 (P/F, A–a gradient). Not reported where the number can only be the FiO2 or only a flow, and read as such: a fraction up to 1 (`venturi 0.4`) or a percentage (`venturi 40 %`) is the FiO2, a number in L/min (`venturi 8 L/min`) or any other bare number (`venturi 8`) the flow. Nor where the line writes a `fio2` too (`venturi 28, fio2 0.28`), or another oxygen line of the timepoint that names no device does (`oxygen fio2 0.28` below or above), which says what the number is: where the two agree the FiO2 is stated once, and where they disagree PN206 names both.',
     example: '@ 08:00\noxygen venturi 28',
     fix: 'Write which it is: `venturi fio2 28 %` for the FiO2 read, or `venturi 28 L/min` for a flow. The quick fixes write each.',
   },
@@ -107,22 +108,26 @@ export const venturiSetting = defineCheck({
   },
 });
 
-function visitVenturiSetting(ctx: CheckContext, node: LineNode): void {
+function visitVenturiSetting(ctx: TimepointContext, node: LineNode): void {
   visitDeviceFio2(ctx, node, 'venturi-setting');
 }
 
 /**
- * Reports the parser's issue `check` on a line, unless the line writes a `fio2` of its own: the
- * FiO2 read from the number after the device is then stated again, and either agrees with it
- * (nothing to say) or not (PN206 names both).
+ * Reports the parser's issue `check` on a line, unless the line writes a `fio2` of its own, or
+ * another oxygen line of its timepoint writes one that states the same FiO2 (`pairsAcrossLines`):
+ * the FiO2 read from the number after the device is then stated again, and either agrees with it
+ * (nothing to say) or not (PN206 names both). Its fix would write a second `fio2`.
  */
-function visitDeviceFio2(ctx: CheckContext, node: LineNode, check: 'venturi-setting' | 'high-flow-percent'): void {
+function visitDeviceFio2(ctx: TimepointContext, node: LineNode, check: 'venturi-setting' | 'high-flow-percent'): void {
   if (node.issues.length === 0 || node.kind !== 'section') return;
   let issue: SyntaxIssue | null = null;
   for (const found of node.issues) if (found.check === check) issue = found;
   if (issue === null) return;
-  const items = node.items;
-  for (let k = 0; k < items.length; k++) if (items[k]!.implied === null && items[k]!.field?.id === 'fio2') return;
+  if (writesFio2(node.items)) return;
+  const lines = ctx.analysis.tree.lines;
+  for (const s of ctx.timepoint.stated) {
+    if (s.fieldId === 'fio2' && s.section === 'oxygen' && s.line !== node.line && s.item.implied === null && pairsAcrossLines(node, lines[s.line]!)) return;
+  }
   ctx.report({ range: toRange(node.line, issue.span), message: issue.message, fixes: lineFixesToFixes(node.line, issue.fixes) });
 }
 
@@ -137,7 +142,7 @@ export const highFlowPercent = defineCheck({
   severity: 'information',
   tags: ['plausibility'],
   doc: {
-    fires: 'A number written with `%` follows `hfnc` (or `highflow`) on an oxygen line without a key, right after the device (`oxygen hfnc 60 %`) or after its flow (`oxygen hfnc 40 L/min 60 %`). A high-flow device is set by a total gas flow in L/min and by the oxygen fraction of its blender, and a flow is never written in %, so the number is read as the FiO2 (60 %, 0.60) and used as a stated FiO2 (P/F, A–a gradient, exports). Not reported where the line writes a `fio2` of its own: where the two agree the FiO2 is stated once; where they disagree PN206 names both, and the `fio2` written is used. After other devices a percentage stays a unit the flow does not take (PN203), offered as the FiO2 with its key: a cannula or a simple or reservoir mask gives an FiO2 that is not set, and NIV and CPAP may take their oxygen at a flow.',
+    fires: 'A number written with `%` follows `hfnc` (or `highflow`) on an oxygen line without a key, right after the device (`oxygen hfnc 60 %`) or after its flow (`oxygen hfnc 40 L/min 60 %`). A high-flow device is set by a total gas flow in L/min and by the oxygen fraction of its blender, and a flow is never written in %, so the number is read as the FiO2 (60 %, 0.60) and used as a stated FiO2 (P/F, A–a gradient, exports). Not reported where the line writes a `fio2` of its own, or another oxygen line of the timepoint that names no device does: where the two agree the FiO2 is stated once; where they disagree PN206 names both, and the `fio2` written is used. After other devices a percentage stays a unit the flow does not take (PN203), offered as the FiO2 with its key: a cannula or a simple or reservoir mask gives an FiO2 that is not set, and NIV and CPAP may take their oxygen at a flow.',
     example: '@ 08:00\noxygen hfnc 60 %',
     fix: 'Write which it is: `hfnc fio2 60 %` for the FiO2 read, or `hfnc 60 L/min` for a flow (offered only where no flow is written). The quick fixes write each.',
   },
@@ -147,7 +152,7 @@ export const highFlowPercent = defineCheck({
   },
 });
 
-function visitHighFlowPercent(ctx: CheckContext, node: LineNode): void {
+function visitHighFlowPercent(ctx: TimepointContext, node: LineNode): void {
   visitDeviceFio2(ctx, node, 'high-flow-percent');
 }
 
@@ -182,7 +187,7 @@ export const unknownWord = readCheck('PN205', 'unknown-word', 'Unknown word valu
 });
 
 export const duplicateKey = readCheck('PN206', 'duplicate-key', 'Stated twice at one timepoint', 'warning', ['timeline'], FORMAT_RULE, {
-  fires: 'The same field is stated twice in the same section at one timepoint. The later value is used; where it is not usable itself (an impossible value, a unit in doubt), neither is. The FiO2 read from the number after the device (the Venturi setting, `oxygen venturi 28`) and a `fio2` written on the same line state it twice only where they disagree, as fractions at the precision of the less precise of the two as written: `venturi 28, fio2 0.28` and `venturi 28 %, fio2 0.3` are one FiO2 and not reported, `venturi 28, fio2 0.35` is, with both values and where each comes from. The `fio2` written is used (P/F, A–a gradient, exports), in either case.',
+  fires: 'The same field is stated twice in the same section at one timepoint. The later value is used; where it is not usable itself (an impossible value, a unit in doubt), neither is. The FiO2 read from the number after the device (the Venturi setting, `oxygen venturi 28`) and a `fio2` written on the same line state it twice only where they disagree, as fractions at the precision of the less precise of the two as written: `venturi 28, fio2 0.28` and `venturi 28 %, fio2 0.3` are one FiO2 and not reported, `venturi 28, fio2 0.35` is, with both values and where each comes from. So are the two on oxygen lines of their own at one timepoint (`oxygen venturi 28`, then `oxygen fio2 0.35`, in either order), where the line of the `fio2` names no device: the message names both lines, and the two lines hold as one (the device and the `fio2` written). The `fio2` written is used (P/F, A–a gradient, exports), in every case. A `fio2` on a vent line is the ventilator\'s, and not compared (PN311 reports the two lines).',
   example: '@ 08:00\nabg po2 71\nabg po2 64',
-  fix: 'Remove one, or put the second measurement under its own timepoint (`@ 08:20`). For a Venturi setting and a `fio2` that disagree, the quick fixes keep either one.',
+  fix: 'Remove one, or put the second measurement under its own timepoint (`@ 08:20`). For a Venturi setting and a `fio2` that disagree, the quick fixes keep either one; on two lines each leaves one line that states the FiO2 once (`oxygen venturi fio2 0.35`, or `oxygen venturi fio2 28 %`).',
 });

@@ -81,8 +81,20 @@ export interface SyntaxIssue {
 /** A fix confined to one line: spans are on the issue's own line. */
 export interface LineFix {
   readonly title: string;
-  readonly edits: readonly { readonly span: Span; readonly newText: string }[];
+  readonly edits: readonly LineEdit[];
   readonly preferred?: boolean;
+}
+
+/**
+ * An edit of a fix: on the line of its finding, or (`line`) on another line of the note, such as
+ * the other line of a timepoint that states one value twice; to `span.end` on `endLine` where it
+ * runs over lines (the removal of a whole line: from its start to the start of the next).
+ */
+export interface LineEdit {
+  readonly span: Span;
+  readonly newText: string;
+  readonly line?: number;
+  readonly endLine?: number;
 }
 
 export type SyntaxCheckAlias =
@@ -173,7 +185,7 @@ export function lineFixesToFixes(line: number, fixes: readonly LineFix[]): reado
 export function lineFixToFix(line: number, fix: LineFix): Fix {
   return {
     title: fix.title,
-    edits: fix.edits.map((e) => ({ range: toRange(line, e.span), newText: e.newText })),
+    edits: fix.edits.map((e) => ({ range: e.line === undefined && e.endLine === undefined ? toRange(line, e.span) : rangeBetween(e.line ?? line, e.span.start, e.endLine ?? e.line ?? line, e.span.end), newText: e.newText })),
     ...(fix.preferred ? { preferred: true } : {}),
   };
 }
