@@ -4,7 +4,9 @@
  * earlier timepoint (settings), or from the note's header (patient, place, units).
  *
  * Carry rules: patient and place values carry until restated (a `place` line replaces the
- * whole place); an `oxygen` line replaces the previous oxygen line and ends ventilation;
+ * whole place); an `oxygen` line replaces the previous oxygen line and ends ventilation (but for a
+ * line with a `fio2` and no device beside one whose device gives the FiO2, `venturi 28`: the two
+ * hold as one, see `pairsAcrossLines`);
  * a `vent` line that states a setting ends oxygen-line therapy (one of readings only ends nothing;
  * under NIV or CPAP its tidal volume is the measured one, of its timepoint) and updates the ventilator settings it restates,
  * keeping the rest (a change of mode keeps only PEEP and FiO2, a change to or from HFOV only
