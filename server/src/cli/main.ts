@@ -19,7 +19,7 @@ import { renderSettingsTable, SETTINGS_END, SETTINGS_START } from '../core/setti
 import { colourWanted, paint, type Paint } from './colour';
 import { runExport, exportRenderer } from './export-command';
 import { runFmt } from './fmt-command';
-import { isBlankNote, listInputs, MAX_NOTE_BYTES, NO_NOTE, readNote, readUpTo, shownFilePath, STDIN_NAME_WITHOUT_STDIN } from './inputs';
+import { isBlankNote, listInputs, MAX_NOTE_BYTES, NO_NOTE, readNote, readUpTo, shownFilePath, STDIN_NAME_WITHOUT_STDIN, stdinExcludedLine } from './inputs';
 import { aloneLimits } from './analyse-alone';
 import { gather, type BatchDone, type WorkDone, type WorkItem } from './pool';
 import { CheckJsonWriter, countOutcome, jsonFileEntryOrProblem, writeCheckSarif, writeCheckText, type FileOutcome } from './render-check';
@@ -115,7 +115,10 @@ async function check(args: readonly string[], io: Io): Promise<number> {
   const opts = validate(checkOptions, { format: values.format, quiet: values.quiet, maxWarnings: values['max-warnings'], exclude: values.exclude, jobs: values.jobs, progress: !values['no-progress'], stdinName: values['stdin-name'] }, { progress: '--no-progress' });
   if (positionals.length === 0) throw new UsageError('check needs at least one file, folder, pattern or - (stdin)');
   const stdinName = opts.stdinName === undefined ? null : shownFilePath(opts.stdinName, io.cwd);
-  const { files, problems } = listInputs(positionals, io.cwd, opts.exclude, stdinName);
+  const { files, problems, stdinExcluded } = listInputs(positionals, io.cwd, opts.exclude, stdinName);
+  // Left alone, as the file of that name would be in a folder checked: one line says so, and the
+  // run is that of the other inputs (none: an empty run, exit 0).
+  if (stdinExcluded !== null) io.stderr.write(`pneumark: ${visible(stdinExcludedLine(stdinExcluded, 'checked'))}\n`);
   const configs = new ConfigReport(io.cwd, stdinName).notes(files);
   const worker = new NoteWorker(io.cwd, {}, null, stdinName);
   const unread: FileOutcome[] = problems.map((p) => ({ path: p.path, findings: [], problem: p.problem }));
