@@ -30,6 +30,8 @@ Usage:
   pneumark export PATH... [options]    one row per timepoint (CSV, JSON Lines) or FHIR R4 bundles
   pneumark fmt PATH... [options]       canonical layout (the editor's formatter)
   pneumark docs [--write FILE]         the documentation of every check
+  pneumark help [COMMAND]              this help, or a command's (as COMMAND --help)
+  pneumark --version                   the version
 
 PATH is a file, a folder (every .pneu below it, in any case; hidden folders and files and
 node_modules are skipped), a glob pattern in quotes ("notes/**/*.pneu"; its .pneu in any case

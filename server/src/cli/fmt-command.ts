@@ -40,7 +40,7 @@ export function runFmt(args: readonly string[], io: Io): number {
   if (positionals.length === 0) throw new UsageError('fmt needs at least one file, folder, pattern or - (stdin)');
   const stdinName = opts.stdinName === undefined ? null : shownFilePath(opts.stdinName, io.cwd);
   const { files, problems, stdinExcluded } = listInputs(positionals, io.cwd, opts.exclude, stdinName);
-  for (const p of problems) io.stderr.write(`pneumark: ${visible(p.path)}: ${p.problem}\n`);
+  for (const p of problems) io.stderr.write(`pneumark: ${visible(p.path)}: ${visible(p.problem ?? '')}\n`);
 
   if (!opts.check && !opts.write) {
     // Standard input counts as one note, excluded or not.
@@ -53,7 +53,7 @@ export function runFmt(args: readonly string[], io: Io): number {
     if (stdinExcluded !== null) return passThrough(io, stdinExcludedLine(stdinExcluded, 'formatted'));
     const note = readNote(files[0]!, io.cwd, io.stdin, { keepBom: true, stdinName });
     if (note.text === null) {
-      io.stderr.write(`pneumark: ${visible(note.path)}: ${note.problem}\n`);
+      io.stderr.write(`pneumark: ${visible(note.path)}: ${visible(note.problem ?? '')}\n`);
       return EXIT.usage;
     }
     const bom = note.text.charCodeAt(0) === 0xfeff ? '\uFEFF' : '';
@@ -77,7 +77,7 @@ export function runFmt(args: readonly string[], io: Io): number {
     try {
       snapshot = readSnapshot(abs);
     } catch (error) {
-      io.stderr.write(`pneumark: ${shown}: ${error instanceof NotRegularFile ? NOT_REGULAR : readProblem(abs, error)}\n`);
+      io.stderr.write(`pneumark: ${shown}: ${error instanceof NotRegularFile ? NOT_REGULAR : visible(readProblem(abs, error))}\n`);
       failed = true;
       continue;
     }
@@ -116,7 +116,7 @@ export function runFmt(args: readonly string[], io: Io): number {
     }
     const syntaxErrors = checkNote(text).findings.filter((f) => f.severity === 'error' && /^PN1/.test(f.code));
     if (syntaxErrors.length > 0 && !opts.force) {
-      io.stderr.write(`pneumark: ${shown}: not rewritten: ${syntaxErrors.length} syntax error(s), first at line ${syntaxErrors[0]!.range.start.line + 1}; fix them or use --force\n`);
+      io.stderr.write(`pneumark: ${shown}: not rewritten: ${syntaxErrors.length} syntax error${syntaxErrors.length === 1 ? '' : 's'}, first at line ${syntaxErrors[0]!.range.start.line + 1}; fix them or use --force\n`);
       failed = true;
       continue;
     }

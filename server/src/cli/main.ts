@@ -10,6 +10,8 @@ import { resolve } from 'node:path';
 import { isMainThread, parentPort, workerData } from 'node:worker_threads';
 import { z } from 'zod';
 import { checkNote } from '../core/check-note';
+import { wordList } from '../core/util/format';
+import { PNEUMARK_VERSION } from '../core/version';
 import { CAUTION, excludeOption, EXIT, HELP, jobsOption, parse, refuseEmptyPaths, stdinNameOption, UsageError, validate, wholeNumberOption, type Io } from './args';
 import { ConfigReport, reportConfigProblems } from './config-report';
 import { renderCheckDocs } from '../core/checks/docs';
@@ -40,8 +42,12 @@ export async function run(argv: readonly string[], io: Io): Promise<number> {
       case 'docs': return docs(rest, io);
       case '-h':
       case '--help':
-      case 'help':
         io.stdout.write(`${HELP.main}\n`);
+        return EXIT.ok;
+      case 'help': return help(rest, io);
+      case '--version':
+        if (rest.length > 0) throw new UsageError(`takes no arguments (got ${rest.map((a) => JSON.stringify(a)).join(', ')})`);
+        io.stdout.write(`pneumark ${PNEUMARK_VERSION}\n`);
         return EXIT.ok;
       case undefined:
         io.stderr.write(`${HELP.main}\n`);
@@ -58,6 +64,22 @@ export async function run(argv: readonly string[], io: Io): Promise<number> {
     }
     throw error;
   }
+}
+
+/** The commands `help COMMAND` knows, in the order the main help lists them. */
+const COMMANDS = ['show', 'check', 'export', 'fmt', 'docs'] as const;
+
+/** `pneumark help [COMMAND]`: the main help, or that command's, as `COMMAND --help` prints it. */
+function help(args: readonly string[], io: Io): number {
+  if (args.length === 0) {
+    io.stdout.write(`${HELP.main}\n`);
+    return EXIT.ok;
+  }
+  if (args.length > 1) throw new UsageError(`takes one command (got ${args.map((a) => JSON.stringify(a)).join(', ')})`);
+  const command = args[0]!;
+  if (!(COMMANDS as readonly string[]).includes(command)) throw new UsageError(`unknown command \`${command}\`; the commands are ${wordList(COMMANDS, 'and')}`);
+  io.stdout.write(`${HELP[command]}\n`);
+  return EXIT.ok;
 }
 
 const showOptions = z.object({ stdinName: stdinNameOption });
