@@ -244,3 +244,164 @@ describe('--stdin-name with the built command', () => {
     expect(readFileSync(join(dir, 'proj', 'pneumark.config.json'), 'utf8')).toContain('kPa');
   });
 });
+
+// A note piped in under a path that `.pneuignore` or `--exclude` leaves out is left alone, as the
+// file would be when a folder is checked: editors and pre-commit hooks pipe every buffer in with
+// --stdin-name, and must not fail on the notes a project excludes.
+describe('--stdin-name naming an excluded path', () => {
+  /** A project with `pneumark.config.json` (kPa), `.pneuignore` leaving out `ward/skip.pneu` and `drafts/`, and `elsewhere` beside it. */
+  function excluding(): string {
+    const dir = project('{ "gasUnit": "kPa" }');
+    writeFileSync(join(dir, 'proj', '.pneuignore'), 'ward/skip.pneu\ndrafts/\n');
+    return dir;
+  }
+  /** A note with an error finding (an unknown section), so a note that is checked cannot pass unnoticed. */
+  const BROKEN = '@ day 1 08:00\nvitalz hr 80\n';
+  const cwd = (dir: string) => join(dir, 'proj');
+
+  const ignored: [string, string[], RegExp][] = [
+    ['.pneuignore', ['-', '--stdin-name', 'ward/skip.pneu'], /^pneumark: the note on standard input was not (checked|exported|formatted): ward\/skip\.pneu is excluded by \.pneuignore$/],
+    ['.pneuignore, a folder', ['-', '--stdin-name', 'drafts/new.pneu'], /^pneumark: the note on standard input was not (checked|exported|formatted): drafts\/new\.pneu is excluded by \.pneuignore$/],
+    ['--exclude PATTERN', ['-', '--stdin-name', 'ward/a.pneu', '--exclude', 'x.pneu', '--exclude', 'ward/*.pneu'], /^pneumark: the note on standard input was not (checked|exported|formatted): ward\/a\.pneu is excluded by --exclude ward\/\*\.pneu$/],
+    ['--exclude ./PATH', ['-', '--stdin-name', 'ward/a.pneu', '--exclude', './ward'], /^pneumark: the note on standard input was not (checked|exported|formatted): ward\/a\.pneu is excluded by --exclude \.\/ward$/],
+  ];
+
+  for (const [what, args, message] of ignored) {
+    it(`check, every format: an empty run, exit 0, one line on stderr (${what})`, async () => {
+      const dir = excluding();
+      const empty = { json: '', sarif: '', text: '' };
+      for (const format of ['text', 'json', 'sarif'] as const) {
+        const r = await cli(['check', '--format', format, ...args], cwd(dir), BROKEN);
+        expect(r.code, format).toBe(0);
+        expect(r.err.trimEnd(), format).toMatch(message);
+        expect(r.err.split('\n'), format).toHaveLength(2);
+        expect(r.err, format).toContain('checked');
+        // (SARIF lists every rule, PN101 among them, whatever it found.)
+        expect(r.out, format).not.toMatch(format === 'sarif' ? /skip|a\.pneu|new\.pneu/ : /PN101|skip|a\.pneu|new\.pneu/);
+        empty[format] = r.out;
+      }
+      expect(empty.text).toBe('0 notes checked: 0 errors, 0 warnings, 0 info.\n');
+      const json = JSON.parse(empty.json) as { files: unknown[]; summary: { files: number } };
+      expect(json.files).toEqual([]);
+      expect(json.summary.files).toBe(0);
+      const sarif = JSON.parse(empty.sarif) as { version: string; runs: { artifacts?: unknown[]; results: unknown[] }[] };
+      expect(sarif.version).toBe('2.1.0');
+      // A run without notes lists no artifacts (SARIF leaves the property out).
+      expect(sarif.runs[0]!.artifacts).toBeUndefined();
+      expect(sarif.runs[0]!.results).toEqual([]);
+    });
+
+    it(`export, every format: what no note gives, exit 0, one line on stderr (${what})`, async () => {
+      const dir = excluding();
+      for (const format of ['csv', 'jsonl', 'fhir']) {
+        const r = await cli(['export', '--format', format, ...args], cwd(dir), BROKEN);
+        expect(r.code, format).toBe(0);
+        expect(r.err.trimEnd(), format).toMatch(message);
+        expect(r.err, format).toContain('exported');
+        if (format === 'csv') {
+          expect(r.out.split('\n').filter((line) => line !== '')).toHaveLength(1);
+          expect(r.out).toMatch(/^file,/);
+        }
+        if (format === 'jsonl') expect(r.out).toBe('');
+        if (format === 'fhir') expect(JSON.parse(r.out)).toEqual([]);
+      }
+    });
+
+    it(`fmt: prints the note unchanged; fmt --check passes (${what})`, async () => {
+      const dir = excluding();
+      const messy = '@  day 1   08:00\r\nvitals   hr 80,spo2 91\r\n\r\n\r\n';
+      expect((await cli(['fmt', '-'], cwd(dir), messy)).out).not.toBe(messy);
+      for (const text of [messy, `\uFEFF${messy}`, '']) {
+        const r = await cli(['fmt', ...args], cwd(dir), text);
+        expect(r.code).toBe(0);
+        expect(r.out).toBe(text);
+        expect(r.err.trimEnd()).toMatch(message);
+        expect(r.err).toContain('formatted');
+      }
+      const checked = await cli(['fmt', '--check', ...args], cwd(dir), messy);
+      expect(checked.code).toBe(0);
+      expect(checked.out).toBe('');
+      expect(checked.err.trimEnd()).toMatch(message);
+    });
+  }
+
+  it('fmt: bytes that are no UTF-8 text come back as they went in', async () => {
+    const dir = excluding();
+    const bytes = Buffer.from([0x40, 0x20, 0x30, 0x38, 0x3a, 0x30, 0x30, 0x0a, 0x6e, 0x6f, 0x74, 0x65, 0x20, 0xe9, 0x0a]);
+    let out: Buffer = Buffer.alloc(0);
+    const io = { ...memoryIo({ cwd: cwd(dir), stdin: bytes }), stdout: { write: (s: string | Uint8Array) => { out = Buffer.concat([out, typeof s === 'string' ? Buffer.from(s) : s]); return true; } } };
+    expect(await run(['fmt', '-', '--stdin-name', 'ward/skip.pneu'], io)).toBe(0);
+    expect(out.equals(bytes)).toBe(true);
+  });
+
+  it('show shows the note: it asks for one note by name, and a file named to show is shown whatever excludes it', async () => {
+    const dir = excluding();
+    writeFileSync(join(dir, 'proj', 'ward', 'skip.pneu'), NOTE);
+    const file = await cli(['show', 'ward/skip.pneu'], cwd(dir));
+    const piped = await cli(['show', '-', '--stdin-name', 'ward/skip.pneu', ], cwd(dir), NOTE);
+    expect(piped.code).toBe(0);
+    expect(piped.err).toBe('');
+    expect(piped.out).toBe(file.out);
+    expect(piped.out.split('\n')[0]).toMatch(/^ward\/skip\.pneu {2}2 timepoints/);
+  });
+
+  it('a path that is not excluded is checked, exported and formatted as before', async () => {
+    const dir = excluding();
+    const checked = await cli(['check', '-', '--stdin-name', 'ward/keep.pneu'], cwd(dir), BROKEN);
+    expect(checked.code).toBe(1);
+    expect(checked.out).toMatch(/^ward\/keep\.pneu:2:1 {2}error {2}PN101/);
+    expect(checked.err).toBe('');
+    const exported = await cli(['export', '--format', 'jsonl', '-', '--stdin-name', 'ward/keep.pneu'], cwd(dir), NOTE);
+    expect(exported.code).toBe(0);
+    expect(exported.out.trim().split('\n')).toHaveLength(2);
+    const formatted = await cli(['fmt', '-', '--stdin-name', 'ward/keep.pneu'], cwd(dir), '@  day 1   08:00\nvitals   hr 80\n');
+    expect(formatted.out).toBe((await cli(['fmt', '-'], cwd(dir), '@  day 1   08:00\nvitals   hr 80\n')).out);
+    expect(formatted.err).toBe('');
+  });
+
+  it('the .pneuignore files that apply are found from the folder of that path, as the project file is', async () => {
+    const dir = excluding();
+    const elsewhere = join(dir, 'elsewhere');
+    // From beside the project: the project's .pneuignore (the folder of its pneumark.config.json) applies.
+    const left = await cli(['check', '-', '--stdin-name', '../proj/ward/skip.pneu'], elsewhere, BROKEN);
+    expect(left.code).toBe(0);
+    expect(left.err.trimEnd()).toBe('pneumark: the note on standard input was not checked: ../proj/ward/skip.pneu is excluded by .pneuignore');
+    // A note beside it is read with the project's settings (kPa: PaCO2 5.3 is not doubted).
+    const kept = await cli(['check', '-', '--stdin-name', '../proj/ward/other.pneu'], elsewhere, NOTE);
+    expect(kept.code).toBe(0);
+    expect(kept.out).not.toMatch(/PN204/);
+    expect(kept.out).toMatch(/^1 note checked/m);
+    // A .pneuignore in the note's own folder applies too.
+    writeFileSync(join(dir, 'proj', 'ward', '.pneuignore'), 'other.pneu\n');
+    const own = await cli(['check', '-', '--stdin-name', '../proj/ward/other.pneu'], elsewhere, NOTE);
+    expect(own.code).toBe(0);
+    expect(own.out).toBe('0 notes checked: 0 errors, 0 warnings, 0 info.\n');
+    expect(own.err).toMatch(/excluded by \.pneuignore/);
+    // The project file of an excluded note is not read: its problems are not reported either.
+    writeFileSync(join(dir, 'proj', 'pneumark.config.json'), '{ "gasUnit": "kpa" }');
+    const bad = await cli(['check', '-', '--stdin-name', '../proj/ward/skip.pneu'], elsewhere, BROKEN);
+    expect(bad.code).toBe(0);
+    expect(bad.err).not.toMatch(/pneumark\.config\.json/);
+  });
+
+  it('with other inputs: they are checked, and the run is as if the note were not piped in', async () => {
+    const dir = excluding();
+    writeFileSync(join(dir, 'proj', 'ward', 'a.pneu'), NOTE);
+    const r = await cli(['check', '--format', 'json', 'ward', '-', '--stdin-name', 'ward/skip.pneu'], cwd(dir), BROKEN);
+    expect(r.code).toBe(0);
+    expect((JSON.parse(r.out) as { files: { path: string }[] }).files.map((f) => f.path)).toEqual(['ward/a.pneu']);
+    // fmt without --check prints one note: - counts as one, excluded or not.
+    const two = await cli(['fmt', 'ward/a.pneu', '-', '--stdin-name', 'ward/skip.pneu'], cwd(dir), BROKEN);
+    expect(two.code).toBe(2);
+    expect(two.err).toMatch(/fmt prints one note, and these inputs hold 2/);
+  });
+
+  it('is described by the help of check, export and fmt, the main help and README', () => {
+    const flat = (text: string) => text.replace(/\s+/g, ' ');
+    for (const command of ['check', 'export', 'fmt']) expect(flat(HELP[command]!), command).toMatch(/when PATH is excluded by \.pneuignore or --exclude, the note is (not read|written out unchanged)/);
+    expect(flat(HELP.show!)).toMatch(/shown even when \.pneuignore or --exclude would leave it out/);
+    expect(flat(HELP.main!)).toMatch(/check, export and fmt leave the note alone when PATH is excluded/);
+    const readme = flat(readFileSync(join(process.cwd(), 'README.md'), 'utf8'));
+    expect(readme).toMatch(/the note on standard input was not checked: ward\/skip\.pneu is excluded by \.pneuignore/);
+  });
+});

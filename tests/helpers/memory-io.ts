@@ -25,7 +25,7 @@ export function memoryIo(options: MemoryIoOptions = {}): MemoryIo {
   return {
     cwd: options.cwd ?? process.cwd(),
     env: options.env ?? { NO_COLOR: '1' },
-    stdout: { write: (s: string) => { out += s; return true; }, isTTY: options.tty ?? false },
+    stdout: { write: (s: string | Uint8Array) => { out += typeof s === 'string' ? s : Buffer.from(s).toString('utf8'); return true; }, isTTY: options.tty ?? false },
     stderr: new Writable({ write(chunk: Buffer, _encoding, done) { err += chunk.toString(); done(); } }),
     stdin: () => (typeof stdin === 'string' ? Buffer.from(stdin) : stdin),
     out: () => out,

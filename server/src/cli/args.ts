@@ -11,7 +11,8 @@ import { visible } from './visible';
 export interface Io {
   readonly cwd: string;
   readonly env: NodeJS.ProcessEnv;
-  readonly stdout: { write(s: string): unknown; isTTY?: boolean };
+  /** Text, or bytes written as they are (`fmt -` passing through a note it leaves alone). */
+  readonly stdout: { write(s: string | Uint8Array): unknown; isTTY?: boolean };
   readonly stderr: NodeJS.WritableStream & { isTTY?: boolean };
   readonly stdin: () => Buffer;
 }
@@ -29,6 +30,8 @@ Usage:
   pneumark export PATH... [options]    one row per timepoint (CSV, JSON Lines) or FHIR R4 bundles
   pneumark fmt PATH... [options]       canonical layout (the editor's formatter)
   pneumark docs [--write FILE]         the documentation of every check
+  pneumark help [COMMAND]              this help, or a command's (as COMMAND --help)
+  pneumark --version                   the version
 
 PATH is a file, a folder (every .pneu below it, in any case; hidden folders and files and
 node_modules are skipped), a glob pattern in quotes ("notes/**/*.pneu"; its .pneu in any case
@@ -37,7 +40,8 @@ too) or - for standard input. A path that exists is read as a path even when it 
 applies below its own folder, as a .gitignore does: the working folder's, and those in the
 folders on the way to each note. --stdin-name PATH (check, export, fmt, show) names the note read
 from - as the file PATH, which need not exist (--stdin-name without - among the inputs is a usage
-error).
+error); check, export and fmt leave the note alone when PATH is excluded, as they would the file
+(one line on standard error; exit 0; fmt writes it out unchanged), show shows it.
 Run \`pneumark COMMAND --help\` for a command's options.
 
 Exit codes: 0 clean; 1 findings at error level, more warnings than --max-warnings, or notes that
@@ -69,7 +73,8 @@ Colour on a terminal; set NO_COLOR to turn it off. Exit code 1 when a finding is
 Options:
   --stdin-name PATH          with FILE -, the path of the note read from standard input: the first
                              line names the note so, and pneumark.config.json is looked up from its
-                             folder, as for a file there (which need not exist)`,
+                             folder, as for a file there (which need not exist); the note is shown
+                             even when .pneuignore or --exclude would leave it out, as a FILE is`,
   check: `Usage: pneumark check PATH... [options]
 
 Options:
@@ -82,7 +87,10 @@ Options:
   --no-progress              no progress bar, even on a terminal
   --stdin-name PATH          the path of the note read from - (standard input), for editors and
                              pipelines: output names the note so, and pneumark.config.json is
-                             looked up from its folder, as for a file there (which need not exist)`,
+                             looked up from its folder, as for a file there (which need not exist);
+                             when PATH is excluded by .pneuignore or --exclude, the note is not
+                             read: one line on standard error says so, and the run is that of the
+                             other inputs (none: no findings, exit 0)`,
   export: `Usage: pneumark export PATH... --format csv|jsonl|fhir [options]
 
 Options:
@@ -108,7 +116,10 @@ Options:
                              pipelines: its file column and FHIR ids are made from it as for a file
                              of that path (so ids stay the same when the text is edited; with
                              --redact, its place in the run is that of such a file), and
-                             pneumark.config.json is looked up from its folder (it need not exist)
+                             pneumark.config.json is looked up from its folder (it need not exist);
+                             when PATH is excluded by .pneuignore or --exclude, the note is not
+                             read: one line on standard error says so, and the output is that of
+                             the other inputs (none: a CSV header alone, or an empty array)
 Columns are listed in README.md ("Export columns").`,
   fmt: `Usage: pneumark fmt PATH... [--check | --write] [--force] [--stdin-name PATH]
 
@@ -126,7 +137,9 @@ Options:
   --exclude PATTERN          leave out paths matching PATTERN (gitignore syntax), or a
                              path (absolute, or from ./ or ../); repeatable
   --stdin-name PATH          the path of the note read from - (standard input), as messages name it
-                             (it need not exist)`,
+                             (it need not exist); when PATH is excluded by .pneuignore or --exclude,
+                             the note is written out unchanged and --check passes it (one line on
+                             standard error says so; exit 0)`,
   docs: `Usage: pneumark docs [--write FILE] [--grammar FILE] [--readme FILE]
 
 Prints (or writes) the documentation of every check, generated from the check registry.

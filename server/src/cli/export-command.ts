@@ -12,7 +12,7 @@ import { toJsonl } from '../core/export/jsonl';
 import { wordList } from '../core/util/format';
 import { excludeOption, EXIT, HELP, jobsOption, parse, stdinNameOption, UsageError, validate, wholeNumberOption, type Io } from './args';
 import { ConfigReport, reportConfigProblems } from './config-report';
-import { listInputs, shownFilePath, STDIN_NAME } from './inputs';
+import { listInputs, shownFilePath, STDIN_NAME, stdinExcludedLine } from './inputs';
 import { Output } from './output';
 import { visible } from './visible';
 import { gather } from './pool';
@@ -104,7 +104,8 @@ export async function runExport(args: readonly string[], io: Io): Promise<number
   if (opts.spreadsheetSafe && opts.format !== 'csv') throw new UsageError('--spreadsheet-safe only applies to --format csv (JSON Lines and FHIR keep text exact)');
   if (positionals.length === 0) throw new UsageError('export needs at least one file, folder, pattern or - (stdin)');
   const stdinName = opts.stdinName === undefined ? null : shownFilePath(opts.stdinName, io.cwd);
-  const { files, problems } = listInputs(positionals, io.cwd, opts.exclude, stdinName);
+  const { files, problems, stdinExcluded } = listInputs(positionals, io.cwd, opts.exclude, stdinName);
+  if (stdinExcluded !== null) io.stderr.write(`pneumark: ${visible(stdinExcludedLine(stdinExcluded, 'exported'))}\n`);
   const configs = new ConfigReport(io.cwd, stdinName).notes(files);
   const task: ExportTask = { kind: 'export', format: opts.format, redactProse: opts.redact, shiftDays: opts.shiftDays ?? 0, anchor: opts.anchor, spreadsheetSafe: opts.spreadsheetSafe };
   // Each note's piece is written as soon as it and the notes before it are in, then let go: an

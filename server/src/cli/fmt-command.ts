@@ -14,7 +14,7 @@ import { z } from 'zod';
 import { checkNote } from '../core/check-note';
 import { formatNote } from '../core/service/format';
 import { NotRegularFile, readSnapshot, writeIfUnchanged, type BeforeRename } from '../node/atomic-write';
-import { binaryProblem, listInputs, looksBinary, MAX_NOTE_BYTES, readNote, readProblem, shownFilePath, utf8Problem } from './inputs';
+import { binaryProblem, listInputs, looksBinary, MAX_NOTE_BYTES, readNote, readProblem, shownFilePath, stdinExcludedLine, utf8Problem } from './inputs';
 import { excludeOption, EXIT, HELP, parse, stdinNameOption, UsageError, validate, type Io } from './args';
 import { visible } from './visible';
 
@@ -39,18 +39,21 @@ export function runFmt(args: readonly string[], io: Io): number {
   const opts = validate(fmtOptions, { check: values.check, write: values.write, force: values.force, exclude: values.exclude, stdinName: values['stdin-name'] });
   if (positionals.length === 0) throw new UsageError('fmt needs at least one file, folder, pattern or - (stdin)');
   const stdinName = opts.stdinName === undefined ? null : shownFilePath(opts.stdinName, io.cwd);
-  const { files, problems } = listInputs(positionals, io.cwd, opts.exclude, stdinName);
-  for (const p of problems) io.stderr.write(`pneumark: ${visible(p.path)}: ${p.problem}\n`);
+  const { files, problems, stdinExcluded } = listInputs(positionals, io.cwd, opts.exclude, stdinName);
+  for (const p of problems) io.stderr.write(`pneumark: ${visible(p.path)}: ${visible(p.problem ?? '')}\n`);
 
   if (!opts.check && !opts.write) {
-    if (files.length > 1) {
-      throw new UsageError(`without --check or --write, fmt prints one note, and ${positionals.length === 1 ? `${visible(positionals[0]!)} holds` : 'these inputs hold'} ${files.length}; add --check or --write to work on several`);
+    // Standard input counts as one note, excluded or not.
+    const notes = files.length + (stdinExcluded === null ? 0 : 1);
+    if (notes > 1) {
+      throw new UsageError(`without --check or --write, fmt prints one note, and ${positionals.length === 1 ? `${visible(positionals[0]!)} holds` : 'these inputs hold'} ${notes}; add --check or --write to work on several`);
     }
     // A missing, unreadable or empty input has had its line above; there is nothing to print.
-    if (problems.length > 0 || files.length === 0) return EXIT.usage;
+    if (problems.length > 0 || notes === 0) return EXIT.usage;
+    if (stdinExcluded !== null) return passThrough(io, stdinExcludedLine(stdinExcluded, 'formatted'));
     const note = readNote(files[0]!, io.cwd, io.stdin, { keepBom: true, stdinName });
     if (note.text === null) {
-      io.stderr.write(`pneumark: ${visible(note.path)}: ${note.problem}\n`);
+      io.stderr.write(`pneumark: ${visible(note.path)}: ${visible(note.problem ?? '')}\n`);
       return EXIT.usage;
     }
     const bom = note.text.charCodeAt(0) === 0xfeff ? '\uFEFF' : '';
@@ -58,6 +61,8 @@ export function runFmt(args: readonly string[], io: Io): number {
     return EXIT.ok;
   }
 
+  // Left alone, as the file of that name would be in a folder formatted.
+  if (stdinExcluded !== null) io.stderr.write(`pneumark: ${visible(stdinExcludedLine(stdinExcluded, opts.check ? 'checked' : 'formatted'))}\n`);
   let failed = problems.length > 0;
   let changed = 0;
   for (const file of files) {
@@ -72,7 +77,7 @@ export function runFmt(args: readonly string[], io: Io): number {
     try {
       snapshot = readSnapshot(abs);
     } catch (error) {
-      io.stderr.write(`pneumark: ${shown}: ${error instanceof NotRegularFile ? NOT_REGULAR : readProblem(abs, error)}\n`);
+      io.stderr.write(`pneumark: ${shown}: ${error instanceof NotRegularFile ? NOT_REGULAR : visible(readProblem(abs, error))}\n`);
       failed = true;
       continue;
     }
@@ -111,7 +116,7 @@ export function runFmt(args: readonly string[], io: Io): number {
     }
     const syntaxErrors = checkNote(text).findings.filter((f) => f.severity === 'error' && /^PN1/.test(f.code));
     if (syntaxErrors.length > 0 && !opts.force) {
-      io.stderr.write(`pneumark: ${shown}: not rewritten: ${syntaxErrors.length} syntax error(s), first at line ${syntaxErrors[0]!.range.start.line + 1}; fix them or use --force\n`);
+      io.stderr.write(`pneumark: ${shown}: not rewritten: ${syntaxErrors.length} syntax error${syntaxErrors.length === 1 ? '' : 's'}, first at line ${syntaxErrors[0]!.range.start.line + 1}; fix them or use --force\n`);
       failed = true;
       continue;
     }
@@ -149,6 +154,23 @@ function writable(path: string): boolean {
   } catch {
     return false;
   }
+}
+
+/**
+ * `fmt -` whose `--stdin-name` path is excluded: standard input written out as it came, byte for
+ * byte (an editor that replaces its buffer with the output loses nothing), and `line` on
+ * standard error. Only input too long to read whole is refused (exit 2, nothing written).
+ */
+function passThrough(io: Io, line: string): number {
+  const bytes = io.stdin();
+  if (bytes.length > MAX_NOTE_BYTES) {
+    io.stderr.write(`pneumark: standard input: too large to pass through (the limit is ${MAX_NOTE_BYTES / 1048576} MB)\n`);
+    return EXIT.usage;
+  }
+  // Text as text; other bytes (not UTF-8) as they are, never decoded.
+  io.stdout.write(utf8Problem(bytes) === null ? bytes.toString('utf8') : bytes);
+  io.stderr.write(`pneumark: ${visible(line)}\n`);
+  return EXIT.ok;
 }
 
 /** Why the formatted note could not be put in place, in a few words (not the temporary file's name). */

@@ -64,6 +64,27 @@ export interface InputList {
   /** Paths to read (relative to cwd where possible, forward slashes), or `-`. */
   readonly files: string[];
   readonly problems: NoteInput[];
+  /**
+   * Why standard input is not among `files` though `-` was given: its `--stdin-name` path is
+   * excluded, as a file of that path would be. Null otherwise.
+   */
+  readonly stdinExcluded: StdinExclusion | null;
+}
+
+/** The `--stdin-name` path of standard input that an exclusion leaves out, and what leaves it out. */
+export interface StdinExclusion {
+  /** The path, as `shownFilePath` writes it. */
+  readonly path: string;
+  /** `.pneuignore`, or `--exclude` and the value that leaves it out (`--exclude drafts/`). */
+  readonly by: string;
+}
+
+/**
+ * The line a command writes on standard error when the note on standard input is left out
+ * (`done`: what was not done to it, `checked`, `exported`, `formatted`).
+ */
+export function stdinExcludedLine(exclusion: StdinExclusion, done: string): string {
+  return `the note on standard input was not ${done}: ${exclusion.path} is excluded by ${exclusion.by}`;
 }
 
 const toPosix = sep === '/' ? (p: string) => p : (p: string) => p.split(sep).join('/');
@@ -85,7 +106,8 @@ type ExclusionSource = '--exclude' | typeof IGNORE_FILE;
  * as `shownFilePath` writes it) names the note read from standard input: `-` then takes the place
  * of a file of that name among the others (its place in the run names it in a redacted export),
  * where it otherwise comes last. Naming it without `-` among `args`, or naming a note that is
- * among the inputs too, is a usage error.
+ * among the inputs too, is a usage error. When the exclusions leave out a file of that path, `-`
+ * is left out too (`stdinExcluded` says why), and is not counted as an input that brought in nothing.
  */
 export function listInputs(args: readonly string[], cwd: string, exclude: readonly string[] = [], stdinName: string | null = null): InputList {
   refuseEmptyPaths(args);
@@ -167,18 +189,47 @@ export function listInputs(args: readonly string[], cwd: string, exclude: readon
     problems.push({ path: toPosix(relative(cwd, file)), text: null, problem: `line ${line} holds more than ${MAX_GLOBSTARS} \`**\`, which makes matching take too long on deep folders; it is not used, so the notes it names are read` });
   }
   const files = onePathPerNote(kept.sort(comparePaths), cwd);
+  // Standard input named by a path the exclusions leave out is left out as that file would be
+  // (root: the file's folder, as for a file named on the command line).
+  let stdinExcluded: StdinExclusion | null = null;
+  if (stdin && stdinName !== null) {
+    const source = excludedBy(stdinName, dirname(resolve(cwd, stdinName)));
+    if (source !== null) stdinExcluded = { path: stdinName, by: source === IGNORE_FILE ? IGNORE_FILE : `--exclude ${excludingValue(cwd, exclude, stdinName)}` };
+  }
   if (files.length === 0 && !stdin && problems.length === 0) {
     // Nothing to read, and nothing said so far: a CI job pointed at the wrong folder must not pass.
     for (const from of yields) problems.push({ path: from.arg, text: null, problem: nothingFound(from) });
   }
-  if (stdin && stdinName !== null) {
+  // Standard input left out by its name is not read at all.
+  const readStdin = stdin && stdinExcluded === null;
+  if (readStdin && stdinName !== null) {
     // Among the others by its name, as the file would be.
     if (files.includes(stdinName)) throw new UsageError(`--stdin-name ${stdinName} names a note that is among the inputs too; each note is read once: leave out one of the two`);
     let at = 0;
     while (at < files.length && comparePaths(files[at]!, stdinName) < 0) at++;
     files.splice(at, 0, '-');
-  } else if (stdin) files.push('-');
-  return { files, problems };
+  } else if (readStdin) files.push('-');
+  return { files, problems, stdinExcluded };
+}
+
+/**
+ * Which `--exclude` value leaves out `path` (a path as `shownFilePath` writes it, of a file named
+ * on the command line), as typed: a path that holds it, else the last pattern that matches it
+ * (a later `!pattern` would have taken it back). Only asked once `exclusions` has said that
+ * `--exclude` leaves it out.
+ */
+function excludingValue(cwd: string, exclude: readonly string[], path: string): string {
+  const abs = resolve(cwd, path);
+  const { paths, patterns } = splitExclusions(cwd, exclude);
+  const holding = paths.findIndex((p) => abs === p || abs.startsWith(p.endsWith(sep) ? p : p + sep));
+  if (holding >= 0) return exclude.filter((value) => isPathExclusion(cwd, value))[holding] ?? paths[holding]!;
+  let rel = relative(cwd, abs);
+  if (outside(rel)) rel = relative(dirname(abs), abs);
+  const typed = exclude.filter((value) => !isPathExclusion(cwd, value));
+  for (let i = patterns.length - 1; i >= 0; i--) {
+    if (!patterns[i]!.startsWith('!') && exclusionPatterns([patterns[i]!]).ignores(toPosix(rel))) return typed[i] ?? patterns[i]!;
+  }
+  return typed[typed.length - 1] ?? '';
 }
 
 /** Why an argument brought in no note (every argument brought in none). */
@@ -448,12 +499,18 @@ function splitExclusions(cwd: string, exclude: readonly string[]): { paths: stri
     else if (/^\.\.?(\/|$)/.test(value)) {
       // `./draft.pneu`, `../notes/old`: a path from the working folder, which gitignore syntax
       // would match against nothing. A wildcard after `./` is anchored there, as a leading `/` is.
-      if (!isDynamicPattern(value)) paths.push(resolve(cwd, value));
+      if (isPathExclusion(cwd, value)) paths.push(resolve(cwd, value));
       else if (value.startsWith('./')) patterns.push(`/${value.replace(/^(\.\/)+/, '')}`);
       else patterns.push(value);
     } else patterns.push(value);
   }
   return { paths, patterns };
+}
+
+/** Whether `splitExclusions` takes an `--exclude` value as a path rather than a pattern. */
+function isPathExclusion(cwd: string, value: string): boolean {
+  if (isAbsolute(value) && existsSync(value) && !existsSync(join(cwd, value))) return true;
+  return /^\.\.?(\/|$)/.test(value) && !isDynamicPattern(value);
 }
 
 /** A `.pneuignore` file's patterns and where they are matched from. */

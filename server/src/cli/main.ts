@@ -10,6 +10,8 @@ import { resolve } from 'node:path';
 import { isMainThread, parentPort, workerData } from 'node:worker_threads';
 import { z } from 'zod';
 import { checkNote } from '../core/check-note';
+import { wordList } from '../core/util/format';
+import { PNEUMARK_VERSION } from '../core/version';
 import { CAUTION, excludeOption, EXIT, HELP, jobsOption, parse, refuseEmptyPaths, stdinNameOption, UsageError, validate, wholeNumberOption, type Io } from './args';
 import { ConfigReport, reportConfigProblems } from './config-report';
 import { renderCheckDocs } from '../core/checks/docs';
@@ -19,7 +21,7 @@ import { renderSettingsTable, SETTINGS_END, SETTINGS_START } from '../core/setti
 import { colourWanted, paint, type Paint } from './colour';
 import { runExport, exportRenderer } from './export-command';
 import { runFmt } from './fmt-command';
-import { isBlankNote, listInputs, MAX_NOTE_BYTES, NO_NOTE, readNote, readUpTo, shownFilePath, STDIN_NAME_WITHOUT_STDIN } from './inputs';
+import { isBlankNote, listInputs, MAX_NOTE_BYTES, NO_NOTE, readNote, readUpTo, shownFilePath, STDIN_NAME_WITHOUT_STDIN, stdinExcludedLine } from './inputs';
 import { aloneLimits } from './analyse-alone';
 import { gather, type BatchDone, type WorkDone, type WorkItem } from './pool';
 import { CheckJsonWriter, countOutcome, jsonFileEntryOrProblem, writeCheckSarif, writeCheckText, type FileOutcome } from './render-check';
@@ -40,8 +42,12 @@ export async function run(argv: readonly string[], io: Io): Promise<number> {
       case 'docs': return docs(rest, io);
       case '-h':
       case '--help':
-      case 'help':
         io.stdout.write(`${HELP.main}\n`);
+        return EXIT.ok;
+      case 'help': return help(rest, io);
+      case '--version':
+        if (rest.length > 0) throw new UsageError(`takes no arguments (got ${rest.map((a) => JSON.stringify(a)).join(', ')})`);
+        io.stdout.write(`pneumark ${PNEUMARK_VERSION}\n`);
         return EXIT.ok;
       case undefined:
         io.stderr.write(`${HELP.main}\n`);
@@ -58,6 +64,22 @@ export async function run(argv: readonly string[], io: Io): Promise<number> {
     }
     throw error;
   }
+}
+
+/** The commands `help COMMAND` knows, in the order the main help lists them. */
+const COMMANDS = ['show', 'check', 'export', 'fmt', 'docs'] as const;
+
+/** `pneumark help [COMMAND]`: the main help, or that command's, as `COMMAND --help` prints it. */
+function help(args: readonly string[], io: Io): number {
+  if (args.length === 0) {
+    io.stdout.write(`${HELP.main}\n`);
+    return EXIT.ok;
+  }
+  if (args.length > 1) throw new UsageError(`takes one command (got ${args.map((a) => JSON.stringify(a)).join(', ')})`);
+  const command = args[0]!;
+  if (!(COMMANDS as readonly string[]).includes(command)) throw new UsageError(`unknown command \`${command}\`; the commands are ${wordList(COMMANDS, 'and')}`);
+  io.stdout.write(`${HELP[command]}\n`);
+  return EXIT.ok;
 }
 
 const showOptions = z.object({ stdinName: stdinNameOption });
@@ -115,7 +137,10 @@ async function check(args: readonly string[], io: Io): Promise<number> {
   const opts = validate(checkOptions, { format: values.format, quiet: values.quiet, maxWarnings: values['max-warnings'], exclude: values.exclude, jobs: values.jobs, progress: !values['no-progress'], stdinName: values['stdin-name'] }, { progress: '--no-progress' });
   if (positionals.length === 0) throw new UsageError('check needs at least one file, folder, pattern or - (stdin)');
   const stdinName = opts.stdinName === undefined ? null : shownFilePath(opts.stdinName, io.cwd);
-  const { files, problems } = listInputs(positionals, io.cwd, opts.exclude, stdinName);
+  const { files, problems, stdinExcluded } = listInputs(positionals, io.cwd, opts.exclude, stdinName);
+  // Left alone, as the file of that name would be in a folder checked: one line says so, and the
+  // run is that of the other inputs (none: an empty run, exit 0).
+  if (stdinExcluded !== null) io.stderr.write(`pneumark: ${visible(stdinExcludedLine(stdinExcluded, 'checked'))}\n`);
   const configs = new ConfigReport(io.cwd, stdinName).notes(files);
   const worker = new NoteWorker(io.cwd, {}, null, stdinName);
   const unread: FileOutcome[] = problems.map((p) => ({ path: p.path, findings: [], problem: p.problem }));
