@@ -70,30 +70,35 @@ export function runChecks(analysis: NoteAnalysis, settings: Settings, checks: re
   const findings: Finding[] = [];
   const disabled = new Set(settings.disabledChecks.map((d) => d.toLowerCase()));
   const enabled = checks.filter((c) => !disabled.has(c.code.toLowerCase()) && !disabled.has(c.alias));
-  const failed = (check: CheckDef, error: unknown): Finding => toFinding(internalError, {
+  // A session keeps findings across versions of the text (see `ownMessage`); a result of one run keeps its tree.
+  const copyMessages = cache !== undefined;
+  const failed = (check: CheckDef, error: unknown): Finding => toFinding(internalError, copyMessages, {
     range: { start: { line: 0, character: 0 }, end: { line: 0, character: 0 } },
     message: `Check ${check.code} (${check.alias}) failed on this note: ${error instanceof Error ? error.message : String(error)}. Other checks still ran.`,
   });
+  // One context serves every check of the note, and one every timepoint check: the runner moves
+  // `current` from check to check (and the timepoint context from timepoint to timepoint). A
+  // context per check (with its two functions) was a tenth of what the runner allocated.
+  let current: CheckDef | null = null;
   const noteShared = new SmallStore<Kept<unknown, CheckContext>, unknown>();
-  for (const check of enabled) {
+  const noteCtx: CheckContext = {
+    analysis,
+    settings,
+    report: (r: Report) => findings.push(toFinding(current!, copyMessages, r)),
+    shared<T>(value: Kept<T, CheckContext>): T { return keptFor(noteShared, value, noteCtx); },
+  };
+  for (let k = 0; k < enabled.length; k++) {
+    const check = enabled[k]!;
     const run = check.run;
     if (!run) continue;
-    const ctx: CheckContext = {
-      analysis,
-      settings,
-      report: (r: Report) => findings.push(toFinding(check, r)),
-      shared<T>(value: Kept<T, CheckContext>): T { return keptFor(noteShared, value, this); },
-    };
+    current = check;
     try {
-      run(ctx);
+      run(noteCtx);
     } catch (error) {
       findings.push(failed(check, error));
     }
   }
   const perTimepoint = enabled.filter((c) => c.runTimepoint);
-  // One context serves every timepoint check: the runner moves it from check to check and from
-  // timepoint to timepoint (a big note has thousands of timepoints and dozens of checks).
-  let current: CheckDef | null = null;
   let own: Finding[] = [];
   const gathered: Finding[] = [];
   // Values shared by the checks of one timepoint: one store, emptied for each timepoint.
@@ -103,7 +108,7 @@ export function runChecks(analysis: NoteAnalysis, settings: Settings, checks: re
     settings,
     timepoint: analysis.timeline.timepoints[0]!,
     derivation: derivationOf(0),
-    report: (r: Report) => own.push(toFinding(current!, r)),
+    report: (r: Report) => own.push(toFinding(current!, copyMessages, r)),
     shared<T>(value: Kept<T, TimepointContext>): T { return keptFor(timepointShared, value, ctx); },
   };
   const timepoints = analysis.timeline.timepoints;
@@ -151,9 +156,16 @@ function withDerivations(analysis: NoteAnalysis, kept: readonly (TimepointDeriva
 }
 
 /**
- * The message of the last finding, as a string of its own (`ownString`). Runs of findings with the
- * same message (a bare `@` on every line of a note) share it rather than keep a copy each. The
- * text it was made from is not kept: it may be a slice of the whole note.
+ * The message of the last finding, as a string of its own (`ownString`), for a session: it keeps
+ * a timepoint's findings across versions of the text, and a message that quotes the note (a slice
+ * of a line, itself a slice of the whole text) would keep every version alive; a message made of
+ * parts would keep them all. Runs of findings with the same message (a bare `@` on every line of a
+ * note) share it rather than keep a copy each. The text it was made from is not kept.
+ *
+ * A single run (`checkNote`) keeps its messages as they were made: its result holds the note's
+ * tree, whose lines are slices of the text anyway, and the copy (a new string per finding) cost
+ * about a tenth of what the runner allocates on the bench corpus, for findings most callers read
+ * once and drop.
  */
 let LAST_MESSAGE = '';
 
@@ -162,11 +174,10 @@ function ownMessage(message: string): string {
   return LAST_MESSAGE;
 }
 
-function toFinding(check: CheckDef, r: Report): Finding {
+function toFinding(check: CheckDef, copyMessage: boolean, r: Report): Finding {
   const code = check.code;
   const severity = r.severity ?? check.severity;
-  // Kept as long as the note: in one piece, not the tree of parts it was built from.
-  const message = ownMessage(r.message);
+  const message = copyMessage ? ownMessage(r.message) : r.message;
   const fixes = r.fixes ?? NONE;
   const anchor = docAnchor(check);
   // Two classes rather than a spread of `related`: no object made only to be spread, and each makes
