@@ -44,6 +44,17 @@ describe('check runner contexts', () => {
     expect(findings.find((f) => f.code === 'PN981')?.docAnchor).toBe('pn981-first-note');
   });
 
+  it('runs every check when none is switched off, and leaves out those switched off by code (any case) or alias', () => {
+    const text = '@ 08:00\nvitals hr 300, spo2 104\n';
+    const codes = (disabledChecks: string[]) => {
+      const settings = withDefaults({ disabledChecks });
+      return runChecks(analyseText(text, settings), settings).findings.map((f) => f.code);
+    };
+    expect(codes([])).toEqual(['PN302', 'PN306']);
+    expect(codes(['pn302'])).toEqual(['PN306']);
+    expect(codes(['PN306', 'unusual-value'])).toEqual([]);
+  });
+
   it('gives the same messages with and without a cache of timepoint findings', () => {
     const settings = withDefaults({});
     const text = '@ 08:00\noxygen room air\nabg 7.21/68/52/26\n@ 09:00\nvitals hr 80, foo 3\n';

@@ -68,8 +68,7 @@ export type TimepointFindingsCache = WeakMap<Timepoint, readonly Finding[]>;
 
 export function runChecks(analysis: NoteAnalysis, settings: Settings, checks: readonly CheckDef[] = CHECKS, cache?: TimepointFindingsCache, keepDerivations = false): NoteResult {
   const findings: Finding[] = [];
-  const disabled = new Set(settings.disabledChecks.map((d) => d.toLowerCase()));
-  const enabled = checks.filter((c) => !disabled.has(c.code.toLowerCase()) && !disabled.has(c.alias));
+  const enabled = enabledChecks(checks, settings.disabledChecks);
   // A session keeps findings across versions of the text (see `ownMessage`); a result of one run keeps its tree.
   const copyMessages = cache !== undefined;
   const failed = (check: CheckDef, error: unknown): Finding => toFinding(internalError, copyMessages, {
@@ -147,6 +146,16 @@ export function runChecks(analysis: NoteAnalysis, settings: Settings, checks: re
   // Codes are ASCII (`PN410`): compared by code unit, the same order on every machine and locale.
   findings.sort((a, b) => comparePositions(a.range.start, b.range.start) || (a.code < b.code ? -1 : a.code > b.code ? 1 : 0));
   return { analysis: kept === null ? analysis : withDerivations(analysis, kept), findings, settings };
+}
+
+/**
+ * The checks not switched off by `disabled` (codes in any case, or aliases): all of them when none is
+ * (the usual settings), without lower-casing every code for every note.
+ */
+function enabledChecks(checks: readonly CheckDef[], disabled: readonly string[]): readonly CheckDef[] {
+  if (disabled.length === 0) return checks;
+  const off = new Set(disabled.map((d) => d.toLowerCase()));
+  return checks.filter((c) => !off.has(c.code.toLowerCase()) && !off.has(c.alias));
 }
 
 /** The analysis with the derivations the checks made (a timepoint with none is derived when asked, as always). */

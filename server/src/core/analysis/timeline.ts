@@ -954,6 +954,10 @@ class ValuesAt implements ValuesInForce {
     return s !== undefined && s.usable ? s.value : null;
   }
 
+  wordOf(id: string): string | null {
+    return (this.measuredHere(id) ?? this.heldFor(id)?.stated)?.word ?? null;
+  }
+
   originOf(id: string): Origin['kind'] | null {
     if (this.measuredHere(id)) return 'here';
     const held = this.heldFor(id);
