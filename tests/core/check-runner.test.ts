@@ -55,6 +55,12 @@ describe('check runner contexts', () => {
     expect(codes(['PN306', 'unusual-value'])).toEqual([]);
   });
 
+  it('reports the parser\'s issues of each timepoint line by line, each under its own check, whatever the lines around them', () => {
+    const text = 'vitals hr\n@ 08:00\nvitals hr 80\nvitals spo2 9,5\nvitals rr\n@ 09:00\nvitals hr 90\n@ 10:00\nvitls hr 80\nvitals hr\n';
+    const found = runChecks(analyseText(text, withDefaults({})), withDefaults({})).findings.filter((f) => /^PN1/.test(f.code));
+    expect(found.map((f) => [f.code, f.range.start.line])).toEqual([['PN102', 0], ['PN103', 3], ['PN102', 4], ['PN101', 8], ['PN102', 9]]);
+  });
+
   it('gives the same messages with and without a cache of timepoint findings', () => {
     const settings = withDefaults({});
     const text = '@ 08:00\noxygen room air\nabg 7.21/68/52/26\n@ 09:00\nvitals hr 80, foo 3\n';
