@@ -10,6 +10,7 @@ import { describe, expect, it } from 'vitest';
 import { checkNote } from '../../server/src/core';
 import { timepointRows, toFhirBundle } from '../../server/src/core/export';
 import { FIELDS } from '../../server/src/core/fields/registry';
+import { SECTIONS } from '../../server/src/core/fields/sections';
 import { convert, unitById, unitsForSpelling } from '../../server/src/core/fields/units';
 import { HB_G_PER_DL_PER_MMOL_L, HB_MONOMER_G_PER_MOL } from '../../server/src/core/physiology/units';
 import { formatAlternative, formatStated } from '../../server/src/core/present';
@@ -41,6 +42,13 @@ describe('haemoglobin in mmol/L', () => {
       expect(convert(mmol, HB_MMOL, unitById('g/dL')!)).toBeCloseTo(ucumHb(mmol, 'mmol/L', 'g/dL'), 9);
     }
     expect(HB_MMOL.ucum).toBe('mmol/L');
+  });
+
+  it('is a measurement stated only on measurement lines, so the check finds the timepoints that state one by the value in force (PN319 looks at no other)', () => {
+    const hb = FIELDS.find((f) => f.id === 'hb')!;
+    expect(hb.sections.map((id) => SECTIONS.find((s) => s.id === id)?.kind)).toEqual(hb.sections.map(() => 'measure'));
+    // Stated twice at one timepoint, the first is the one in mmol/L: still found.
+    expect(codesOf('@ 08:00\nlabs hb 8.4 mmol/L, hb 8.4 mmol/L\n@ 09:00\nvitals hr 80\n@ 12:00\nlabs hb 8.1')).toContain('PN319');
   });
 
   it('is a unit of haemoglobin alone: no other field lists it', () => {

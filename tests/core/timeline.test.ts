@@ -327,7 +327,7 @@ describe('values stated twice at one timepoint (PN206)', () => {
 });
 
 describe('values in force: where a value came from, asked without building it', () => {
-  it('answers originOf and numberOf as get(id) does, for every field at every timepoint of generated notes', () => {
+  it('answers originOf, numberOf and wordOf as get(id) does, for every field at every timepoint of generated notes', () => {
     const ids = FIELDS.map((f) => f.id);
     fc.assert(fc.property(nearlyValidNote, (text) => {
       for (const tp of timeline(`patient age 60 y\nplace altitude 1200 m\n${text}`).timepoints) {
@@ -335,6 +335,7 @@ describe('values in force: where a value came from, asked without building it', 
           const v = tp.values.get(id);
           expect(tp.values.originOf(id)).toBe(v?.origin.kind ?? null);
           expect(tp.values.numberOf(id)).toBe(v?.stated.usable ? v.stated.value : null);
+          expect(tp.values.wordOf(id)).toBe(v?.stated.word ?? null);
         }
       }
     }), { numRuns: 300 });

@@ -68,32 +68,36 @@ export type TimepointFindingsCache = WeakMap<Timepoint, readonly Finding[]>;
 
 export function runChecks(analysis: NoteAnalysis, settings: Settings, checks: readonly CheckDef[] = CHECKS, cache?: TimepointFindingsCache, keepDerivations = false): NoteResult {
   const findings: Finding[] = [];
-  const disabled = new Set(settings.disabledChecks.map((d) => d.toLowerCase()));
-  const enabled = checks.filter((c) => !disabled.has(c.code.toLowerCase()) && !disabled.has(c.alias));
-  const failed = (check: CheckDef, error: unknown): Finding => toFinding(internalError, {
+  const enabled = enabledChecks(checks, settings.disabledChecks);
+  // A session keeps findings across versions of the text (see `ownMessage`); a result of one run keeps its tree.
+  const copyMessages = cache !== undefined;
+  const failed = (check: CheckDef, error: unknown): Finding => toFinding(internalError, copyMessages, {
     range: { start: { line: 0, character: 0 }, end: { line: 0, character: 0 } },
     message: `Check ${check.code} (${check.alias}) failed on this note: ${error instanceof Error ? error.message : String(error)}. Other checks still ran.`,
   });
+  // One context serves every check of the note, and one every timepoint check: the runner moves
+  // `current` from check to check (and the timepoint context from timepoint to timepoint). A
+  // context per check (with its two functions) made most of what the runner allocated.
+  let current: CheckDef | null = null;
   const noteShared = new SmallStore<Kept<unknown, CheckContext>, unknown>();
-  for (const check of enabled) {
+  const noteCtx: CheckContext = {
+    analysis,
+    settings,
+    report: (r: Report) => findings.push(toFinding(current!, copyMessages, r)),
+    shared<T>(value: Kept<T, CheckContext>): T { return keptFor(noteShared, value, noteCtx); },
+  };
+  for (let k = 0; k < enabled.length; k++) {
+    const check = enabled[k]!;
     const run = check.run;
     if (!run) continue;
-    const ctx: CheckContext = {
-      analysis,
-      settings,
-      report: (r: Report) => findings.push(toFinding(check, r)),
-      shared<T>(value: Kept<T, CheckContext>): T { return keptFor(noteShared, value, this); },
-    };
+    current = check;
     try {
-      run(ctx);
+      run(noteCtx);
     } catch (error) {
       findings.push(failed(check, error));
     }
   }
   const perTimepoint = enabled.filter((c) => c.runTimepoint);
-  // One context serves every timepoint check: the runner moves it from check to check and from
-  // timepoint to timepoint (a big note has thousands of timepoints and dozens of checks).
-  let current: CheckDef | null = null;
   let own: Finding[] = [];
   const gathered: Finding[] = [];
   // Values shared by the checks of one timepoint: one store, emptied for each timepoint.
@@ -103,7 +107,7 @@ export function runChecks(analysis: NoteAnalysis, settings: Settings, checks: re
     settings,
     timepoint: analysis.timeline.timepoints[0]!,
     derivation: derivationOf(0),
-    report: (r: Report) => own.push(toFinding(current!, r)),
+    report: (r: Report) => own.push(toFinding(current!, copyMessages, r)),
     shared<T>(value: Kept<T, TimepointContext>): T { return keptFor(timepointShared, value, ctx); },
   };
   const timepoints = analysis.timeline.timepoints;
@@ -144,6 +148,16 @@ export function runChecks(analysis: NoteAnalysis, settings: Settings, checks: re
   return { analysis: kept === null ? analysis : withDerivations(analysis, kept), findings, settings };
 }
 
+/**
+ * The checks not switched off by `disabled` (codes in any case, or aliases): all of them when none is
+ * (the usual settings), without lower-casing every code for every note.
+ */
+function enabledChecks(checks: readonly CheckDef[], disabled: readonly string[]): readonly CheckDef[] {
+  if (disabled.length === 0) return checks;
+  const off = new Set(disabled.map((d) => d.toLowerCase()));
+  return checks.filter((c) => !off.has(c.code.toLowerCase()) && !off.has(c.alias));
+}
+
 /** The analysis with the derivations the checks made (a timepoint with none is derived when asked, as always). */
 function withDerivations(analysis: NoteAnalysis, kept: readonly (TimepointDerivation | undefined)[]): NoteAnalysis {
   const derive = analysis.derivation;
@@ -151,9 +165,16 @@ function withDerivations(analysis: NoteAnalysis, kept: readonly (TimepointDeriva
 }
 
 /**
- * The message of the last finding, as a string of its own (`ownString`). Runs of findings with the
- * same message (a bare `@` on every line of a note) share it rather than keep a copy each. The
- * text it was made from is not kept: it may be a slice of the whole note.
+ * The message of the last finding, as a string of its own (`ownString`), for a session: it keeps
+ * a timepoint's findings across versions of the text, and a message that quotes the note (a slice
+ * of a line, itself a slice of the whole text) would keep every version alive; a message made of
+ * parts would keep them all. Runs of findings with the same message (a bare `@` on every line of a
+ * note) share it rather than keep a copy each. The text it was made from is not kept.
+ *
+ * A single run (`checkNote`) keeps its messages as they were made: its result holds the note's
+ * tree, whose lines are slices of the text anyway, and the copy (a new string per finding) was
+ * 4 % of all that checkNote allocated on the bench corpus, for findings most callers read once
+ * and drop.
  */
 let LAST_MESSAGE = '';
 
@@ -162,11 +183,10 @@ function ownMessage(message: string): string {
   return LAST_MESSAGE;
 }
 
-function toFinding(check: CheckDef, r: Report): Finding {
+function toFinding(check: CheckDef, copyMessage: boolean, r: Report): Finding {
   const code = check.code;
   const severity = r.severity ?? check.severity;
-  // Kept as long as the note: in one piece, not the tree of parts it was built from.
-  const message = ownMessage(r.message);
+  const message = copyMessage ? ownMessage(r.message) : r.message;
   const fixes = r.fixes ?? NONE;
   const anchor = docAnchor(check);
   // Two classes rather than a spread of `related`: no object made only to be spread, and each makes

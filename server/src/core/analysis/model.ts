@@ -60,6 +60,8 @@ export interface ValuesInForce extends ReadonlyMap<string, InputValue> {
   originOf(id: string): Origin['kind'] | null;
   /** The usable number in force for a field (canonical unit), without building the value; null when none. */
   numberOf(id: string): number | null;
+  /** The word of the value in force for a field, usable or not (`get(id)?.stated.word`), without building the value; null when none. */
+  wordOf(id: string): string | null;
   /**
    * The setting (patient, place, oxygen or ventilator value) held for a field at the end of the
    * timepoint, the one later timepoints carry, also where a measurement stated here is the value in

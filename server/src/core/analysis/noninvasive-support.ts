@@ -155,7 +155,7 @@ export function endExpiratoryField(device: string | null, values: NumbersInForce
  */
 export function deviceInForce(values: ValuesInForce): string | null {
   if (values.originOf('device') === null) return null;
-  return values.get('device')?.stated.word ?? null;
+  return values.wordOf('device');
 }
 
 /** Whether the IPAP and EPAP in force are pressures the device in force does not give (PN318). */

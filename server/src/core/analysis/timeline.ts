@@ -1074,40 +1074,49 @@ class ValuesAt implements ValuesInForce {
     private readonly stated: readonly StatedValue[],
   ) {}
 
+  // Each read looks up the field's slot once (FIELD_SLOT), for both places a value can be in.
   get(id: string): InputValue | undefined {
-    const s = this.measuredHere(id);
+    const slot = FIELD_SLOT.get(id);
+    const s = this.measuredHere(id, slot);
     if (s) return { stated: s, origin: { kind: 'here', line: s.line, span: s.item.span } };
-    const held = this.heldFor(id);
+    const held = this.heldFor(id, slot);
     return held ? { stated: held.stated, origin: originOf(held, this.index) } : undefined;
   }
 
   has(id: string): boolean {
-    return this.measuredHere(id) !== undefined || this.heldFor(id) !== undefined;
+    const slot = FIELD_SLOT.get(id);
+    return this.measuredHere(id, slot) !== undefined || this.heldFor(id, slot) !== undefined;
   }
 
   heldSetting(id: string): InputValue | undefined {
-    const held = this.heldFor(id);
+    const held = this.heldFor(id, FIELD_SLOT.get(id));
     return held ? { stated: held.stated, origin: originOf(held, this.index) } : undefined;
   }
 
   numberOf(id: string): number | null {
-    const s = this.measuredHere(id) ?? this.heldFor(id)?.stated;
+    const slot = FIELD_SLOT.get(id);
+    const s = this.measuredHere(id, slot) ?? this.heldFor(id, slot)?.stated;
     return s !== undefined && s.usable ? s.value : null;
   }
 
+  wordOf(id: string): string | null {
+    const slot = FIELD_SLOT.get(id);
+    return (this.measuredHere(id, slot) ?? this.heldFor(id, slot)?.stated)?.word ?? null;
+  }
+
   originOf(id: string): Origin['kind'] | null {
-    if (this.measuredHere(id)) return 'here';
-    const held = this.heldFor(id);
+    const slot = FIELD_SLOT.get(id);
+    if (this.measuredHere(id, slot)) return 'here';
+    const held = this.heldFor(id, slot);
     if (!held) return null;
     return held.timepoint === this.index ? 'here' : held.timepoint < 0 ? 'header' : 'carried';
   }
 
-  /** The measurement or reading of a field stated here (the last of them wins). */
-  private measuredHere(id: string): StatedValue | undefined {
-    if (this.measuredLow < 0) this.markMeasured();
-    const slot = FIELD_SLOT.get(id);
+  /** The measurement or reading of a field stated here (the last of them wins); `slot` is the field's FIELD_SLOT. */
+  private measuredHere(id: string, slot: number | undefined): StatedValue | undefined {
     // A stated value's field is always one of the registry's.
     if (slot === undefined) return undefined;
+    if (this.measuredLow < 0) this.markMeasured();
     const index = slot >> HELD_BITS;
     const bits = index < MASK_BITS ? this.measuredLow : this.measuredHigh;
     if ((bits & (1 << (index % MASK_BITS))) === 0) return undefined;
@@ -1136,8 +1145,7 @@ class ValuesAt implements ValuesInForce {
    * A field is held in one map only (an oxygen line empties the ventilator's and back), and only in
    * the maps of its sections (FIELD_SLOT): a measurement (`pao2`) is looked up in none of them.
    */
-  private heldFor(id: string): Held | undefined {
-    const slot = FIELD_SLOT.get(id);
+  private heldFor(id: string, slot: number | undefined): Held | undefined {
     if (slot === undefined) return undefined;
     const state = this.state;
     return ((slot & HELD_IN_VENT) !== 0 ? state.vent.get(id) : undefined) ??

@@ -11,6 +11,7 @@ import type { Settings } from '../settings';
 import type { LineNode } from '../syntax/tree';
 import type { Fix, Range, Severity } from '../types';
 import type { Kept } from '../util/small-store';
+import { NONE } from '../util/lists';
 
 export interface CheckDoc {
   /** What makes it fire, in a sentence or two. */
@@ -99,6 +100,27 @@ export function forTimepointLines(ctx: TimepointContext, visit: (ctx: TimepointC
   const end = Math.min(ctx.timepoint.endLine + 1, lines.length);
   for (let i = ctx.timepoint.startLine; i < end; i++) visit(ctx, lines[i]!);
 }
+
+/**
+ * Visits the lines of a timepoint that have syntax issues, in order: the checks that report the
+ * parser's issues (eight of them) share one pass over the timepoint's lines, and most timepoints
+ * have no such line.
+ */
+export function forTimepointIssueLines(ctx: TimepointContext, visit: (ctx: TimepointContext, node: LineNode) => void): void {
+  const lines = ctx.shared(ISSUE_LINES);
+  for (let i = 0; i < lines.length; i++) visit(ctx, lines[i]!);
+}
+
+const ISSUE_LINES: Kept<readonly LineNode[], TimepointContext> = {
+  name: 'lines with syntax issues',
+  compute(ctx) {
+    const lines = ctx.analysis.tree.lines;
+    const end = Math.min(ctx.timepoint.endLine + 1, lines.length);
+    let found: LineNode[] | null = null;
+    for (let i = ctx.timepoint.startLine; i < end; i++) if (lines[i]!.issues.length > 0) (found ??= []).push(lines[i]!);
+    return found ?? NONE;
+  },
+};
 
 /** Visits the note's header lines (those before the first timepoint). */
 export function forHeaderLines(ctx: CheckContext, visit: (ctx: CheckContext, node: LineNode) => void): void {

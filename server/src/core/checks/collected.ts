@@ -5,7 +5,7 @@
 import type { ReadCheckAlias } from '../analysis/read-issues';
 import { pairsAcrossLines, writesFio2 } from '../analysis/timeline';
 import { lineFixesToFixes, toRange, type LineNode, type SyntaxCheckAlias, type SyntaxIssue } from '../syntax/tree';
-import { defineCheck, forHeaderLines, forTimepointLines, type CheckContext, type CheckDef, type CheckDoc, type CheckTag, type TimepointContext } from './check';
+import { defineCheck, forHeaderLines, forTimepointIssueLines, type CheckContext, type CheckDef, type CheckDoc, type CheckTag, type TimepointContext } from './check';
 import type { Severity } from '../types';
 
 const FORMAT_RULE = 'format rule (grammar/README.md)';
@@ -29,7 +29,7 @@ function syntaxCheck(code: string, alias: SyntaxCheckAlias, title: string, sever
       }
     },
     runTimepoint(ctx) {
-      forTimepointLines(ctx, visit);
+      forTimepointIssueLines(ctx, visit);
     },
   });
 }
@@ -104,7 +104,7 @@ export const venturiSetting = defineCheck({
   },
   source: "O'Driscoll BR, Howard LS, Earis J, Mak V, on behalf of the British Thoracic Society Emergency Oxygen Guideline Group. BTS guideline for oxygen use in adults in healthcare and emergency settings. Thorax 2017;72(Suppl 1):ii1–ii90 (the citation read in its entry in the National Guideline Clearinghouse summary 11253; its Venturi settings of 24, 28, 31, 35, 40 and 60 % oxygen, each at its own oxygen flow of some 2 to 15 L/min: from memory). European Respiratory Society, European Lung White Book, Principles of respiratory therapy, figure 2: Venturi masks set the inspired oxygen concentration, colour-coded from 24 to 60 %",
   runTimepoint(ctx) {
-    forTimepointLines(ctx, visitVenturiSetting);
+    forTimepointIssueLines(ctx, visitVenturiSetting);
   },
 });
 
@@ -148,7 +148,7 @@ export const highFlowPercent = defineCheck({
   },
   source: 'Guia M, Alpay N, Gerardo A, et al. High-flow nasal oxygen therapy in acute hypoxemic respiratory failure: concise review on technology and initial methodology. Turk Thorac J 2021;22(6):494–500 (an air–oxygen blender gives up to 100 % oxygen, at a flow of up to 80 L/min). Li J, Scott JB, Fink JB, et al. Optimizing high-flow nasal cannula flow settings in adult hypoxemic patients based on peak inspiratory flow during tidal breathing. Ann Intensive Care 2021;11:164 (the flow set in L/min, the FiO2 titrated on its own)',
   runTimepoint(ctx) {
-    forTimepointLines(ctx, visitHighFlowPercent);
+    forTimepointIssueLines(ctx, visitHighFlowPercent);
   },
 });
 

@@ -4,13 +4,23 @@
  * note's laboratory reports mmol/L, 8.1 is more likely 8.1 mmol/L (13.1 g/dL) than a fall to
  * 8.1 g/dL. The value is read as written (g/dL), and the finding says so with both readings.
  */
-import type { StatedValue } from '../analysis/model';
+import type { StatedValue, Timepoint } from '../analysis/model';
 import { displayUnit } from '../analysis/read-value';
 import { convert, HB_MMOL_PER_L, unitById } from '../fields/units';
 import { within } from '../analysis/bounds';
 import { rangeBetween, toRange } from '../syntax/tree';
 import { formatNumber } from '../util/format';
 import { defineCheck } from './check';
+
+/**
+ * Whether a timepoint states an Hb, asked of its values in force (a lookup in the fields it
+ * measures) rather than by reading every value it states: most timepoints state none, and the
+ * check runs over the whole note. An Hb is a measurement (its sections measure), in force only
+ * where it is stated, so one is stated exactly where the value in force is from here.
+ */
+function statesHb(tp: Timepoint): boolean {
+  return tp.values.originOf('hb') === 'here';
+}
 
 const HB_MMOL = unitById(HB_MMOL_PER_L)!;
 const G_PER_DL = unitById('g/dL')!;
@@ -32,6 +42,7 @@ export const bareHbBesideMmolCheck = defineCheck({
     // The first Hb written in mmol/L; most notes have none, and then nothing more is looked at.
     let inMmol: StatedValue | null = null;
     for (let t = 0; t < timepoints.length && inMmol === null; t++) {
+      if (!statesHb(timepoints[t]!)) continue;
       const stated = timepoints[t]!.stated;
       for (let i = 0; i < stated.length; i++) {
         const s = stated[i]!;
@@ -41,6 +52,7 @@ export const bareHbBesideMmolCheck = defineCheck({
     if (inMmol === null) return;
     const soft = inMmol.field.soft;
     for (let t = 0; t < timepoints.length; t++) {
+      if (!statesHb(timepoints[t]!)) continue;
       const stated = timepoints[t]!.stated;
       for (let i = 0; i < stated.length; i++) {
         const s = stated[i]!;

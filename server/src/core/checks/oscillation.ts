@@ -9,7 +9,7 @@ import { defineCheck, type TimepointContext } from './check';
 
 /** Whether the mode in force at a timepoint is high-frequency oscillation. */
 export function inHfov(at: TimepointContext): boolean {
-  return at.timepoint.values.get('mode')?.stated.word === OSCILLATION_MODE;
+  return at.timepoint.values.wordOf('mode') === OSCILLATION_MODE;
 }
 
 export const amplitudeOutsideHfov = defineCheck({
@@ -28,7 +28,7 @@ export const amplitudeOutsideHfov = defineCheck({
     const values = ctx.timepoint.values;
     // Asked without building the values: nearly every timepoint states no amplitude.
     if (values.originOf('amplitude') !== 'here') return;
-    const mode = values.get('mode')?.stated.word ?? null;
+    const mode = values.wordOf('mode');
     if (mode === null || mode === OSCILLATION_MODE) return;
     const amplitude = values.get('amplitude');
     if (!amplitude) return;

@@ -32,7 +32,7 @@ export const rateBelowSet = defineCheck({
     const measured = values.numberOf('rr');
     const set = values.numberOf('vent_rate');
     if (measured === null || set === null || measured >= set - RATE_TOLERANCE_PER_MIN) return;
-    const mode = values.get('mode')?.stated.word ?? null;
+    const mode = values.wordOf('mode');
     if (mode === null || !MODES_WITH_SET_BREATHS.has(mode)) return;
     const rr = values.get('rr');
     const setRate = values.get('vent_rate');

@@ -83,7 +83,7 @@ function rateHint(s: StatedValue, at: TimepointContext | null): { text: string; 
     return { text: ` In HFOV the rate is a frequency: ${value.text} Hz would be usual.`, fix: { title: `Write ${value.text} Hz`, edits: [edit] } };
   }
   if (s.readUnit !== 'Hz') return null;
-  const mode = at.timepoint.values.get('mode')?.stated.word ?? null;
+  const mode = at.timepoint.values.wordOf('mode');
   return { text: ` A rate in Hz is usual in HFOV; the mode in force here is ${mode === null ? 'not stated' : mode}.`, fix: null, slip: written !== null && Number.isInteger(written) };
 }
 
@@ -95,8 +95,10 @@ function rateHint(s: StatedValue, at: TimepointContext | null): { text: string; 
 function bodySizeKg(at: TimepointContext): number | null {
   const weight = at.timepoint.values.numberOf('weight');
   const pbw = derivedValueOf(at.derivation, 'predicted_body_weight')?.value ?? null;
-  const sizes = [weight, pbw].filter((v): v is number => v !== null && v > 0);
-  return sizes.length === 0 ? null : Math.min(...sizes);
+  // Without a list of the two: asked for every tidal volume stated.
+  const w = weight !== null && weight > 0 ? weight : null;
+  const p = pbw !== null && pbw > 0 ? pbw : null;
+  return w === null ? p : p === null ? w : Math.min(w, p);
 }
 
 /**

@@ -57,7 +57,7 @@ export function withDecimals(decimals: number | undefined): ValueExtras {
 export function flowOnRoomAir(values: ValuesInForce): number | null {
   const flow = values.numberOf('o2_flow');
   if (flow === null || !(flow > 0)) return null;
-  return values.get('device')?.stated.word === 'room air' ? flow : null;
+  return values.wordOf('device') === 'room air' ? flow : null;
 }
 
 /** The FiO2 of air (common practice; 0.2093 in some texts). */
@@ -72,7 +72,7 @@ const ROOM_AIR_FIO2 = 0.21;
 export function isRoomAirContradiction(fio2: InputValue, values: ValuesInForce): boolean {
   const stated = fio2.stated;
   if (stated.section !== 'oxygen' || !stated.usable || stated.value === null || !(stated.value > ROOM_AIR_FIO2 + 1e-9)) return false;
-  return values.get('device')?.stated.word === 'room air';
+  return values.wordOf('device') === 'room air';
 }
 
 /**
@@ -140,6 +140,12 @@ export interface DerivedTable {
   readonly slots: ReadonlyMap<string, number>;
 }
 
+/** A usable word value in force (`DeriveContext.word`), and the value it is the word of. */
+export interface WordInForce {
+  readonly word: string;
+  readonly input: InputValue;
+}
+
 type Evaluated = DerivedValue | MissingValue | NotApplicable | null;
 
 /** Marks a slot that is being computed (guards against a cycle). */
@@ -153,6 +159,8 @@ const IN_PROGRESS = 0;
 class FieldRead {
   /** The term last read (several formulas read one input under one name). */
   term: Term | null = null;
+  /** What `word` gives for this field, once asked (undefined until then): a gas asks for the mode and the device a dozen times. */
+  word: WordInForce | null | undefined = undefined;
 
   constructor(
     readonly id: string,
@@ -260,11 +268,12 @@ export class DeriveContext {
     return input ? kpaResolutionMmhg(input.stated) : 0;
   }
 
-  /** A word value in force (device, mode, sex). */
-  word(id: string): { word: string; input: InputValue } | null {
-    const input = this.input(id);
-    if (!input || !input.stated.usable || input.stated.word === null) return null;
-    return { word: input.stated.word, input };
+  /** A word value in force (device, mode, sex); one object per field and context. */
+  word(id: string): WordInForce | null {
+    const r = this.read(id);
+    if (r.word !== undefined) return r.word;
+    const input = r.input;
+    return (r.word = !input || !input.stated.usable || input.stated.word === null ? null : { word: input.stated.word, input });
   }
 
   /** Whether a field is stated at this timepoint (not carried). */
