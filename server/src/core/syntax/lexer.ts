@@ -129,26 +129,32 @@ const POOL_LIMIT = 4096;
 const LIST: Word[] = [];
 /** How many words `wordsOf` handed out last. */
 let handedCount = 0;
+/** The most words handed out for one line since `releaseWords` last ran: those it lets go of. */
+let heldCount = 0;
 
 /**
  * What `wordsOf` saw of the line besides its words: whether two commas came with no word
  * between them (`hr 80,, rr 18`, also before the first word or after the last). One record for
  * every line, read right after the call: few lines have such commas, and the parser looks for
- * them only then.
+ * them only then. And where `wordsOf` stopped reading, given a `max` it reached before the end of
+ * the line (-1: at the end), for `moreWordsOf` to read on from.
  */
-export const LEXED: { doubledComma: boolean } = { doubledComma: false };
+export const LEXED: { doubledComma: boolean; stoppedAt: number } = { doubledComma: false, stoppedAt: -1 };
 
 /**
- * Lets go of the texts the words handed out last still hold (a word's text may be a slice that
- * keeps its whole note alive): the parser calls this when it is done with a line.
+ * Lets go of the texts the words handed out since the last call still hold (a word's text may be a
+ * slice that keeps its whole note alive): the parser calls this when it is done with a line, or
+ * with all the lines of a note (`parseNote`: the words of one line hold only text of the note, alive
+ * while it is parsed anyway, so they are let go of once, not after every line).
  */
 export function releaseWords(): void {
-  // By the count handed out, not the list's length: a caller may have shortened the list (a full stop left out).
-  for (let k = 0; k < handedCount; k++) {
+  // By the most handed out, not the list's length: a caller may have shortened the list (a full stop left out).
+  for (let k = 0; k < heldCount; k++) {
     const word = k < POOL_LIMIT ? POOL[k] : LIST[k];
     if (word) word.reuse('', 0, 0, false, '');
   }
   handedCount = 0;
+  heldCount = 0;
 }
 
 /**
@@ -156,15 +162,39 @@ export function releaseWords(): void {
  * next call. `intern` may give a string equal to the text of `[start, end)` of the body, kept
  * elsewhere (the words of the format: section names, keys, units), so the tree does not hold a copy
  * of `hr` per line; null leaves the text to be cut out when read (see `Word`).
+ *
+ * Given `max`, it stops after that many words (what the parser needs of a line of prose: a note
+ * line's words after its first two, a timepoint's label, are not read as words); `moreWordsOf`
+ * reads on. `LEXED.doubledComma` then says what the words read so far showed.
  */
-export function wordsOf(body: string, from = 0, intern?: (body: string, start: number, end: number) => string | null): Word[] {
+export function wordsOf(body: string, from = 0, intern?: (body: string, start: number, end: number) => string | null, max = Infinity): Word[] {
+  LEXED.doubledComma = false;
+  handedCount = 0;
+  return lexFrom(body, from, intern, max);
+}
+
+/**
+ * The words of the line `wordsOf` last read, read on up to `max` words in all, from where it stopped
+ * (the same list, with the words after those it had). Valid until the next call of either.
+ */
+export function moreWordsOf(body: string, intern?: (body: string, start: number, end: number) => string | null, max = Infinity): Word[] {
+  if (LEXED.stoppedAt < 0 || handedCount >= max) return handedCount === 0 ? [] : LIST;
+  return lexFrom(body, LEXED.stoppedAt, intern, max);
+}
+
+/** Reads words of `body` from `from` after the `handedCount` words already in LIST, until `max` in all. */
+function lexFrom(body: string, from: number, intern: ((body: string, start: number, end: number) => string | null) | undefined, max: number): Word[] {
   const words = LIST;
-  let count = 0;
+  let count = handedCount;
   let i = from;
   let sawComma = false;
-  LEXED.doubledComma = false;
   const n = body.length;
+  LEXED.stoppedAt = -1;
   while (i < n) {
+    if (count >= max) {
+      LEXED.stoppedAt = i;
+      break;
+    }
     const c = body.charCodeAt(i);
     const kind = c < 0x80 ? ASCII_KIND[c]! : isBlank(c) ? BLANK : 0;
     if (kind === BLANK) { i++; continue; }
@@ -197,6 +227,7 @@ export function wordsOf(body: string, from = 0, intern?: (body: string, start: n
     sawComma = false;
   }
   handedCount = count;
+  if (count > heldCount) heldCount = count;
   if (count === 0) return [];
   if (words.length !== count) words.length = count;
   return words;
@@ -237,49 +268,50 @@ const NO_NUMBER: NumberParts = Object.freeze({ length: 0, value: NaN, decimalCom
  */
 export const SCANNED: { value: number; decimalComma: boolean } = { value: 0, decimalComma: false };
 
-/** `leadingNumber` without an object per call: the length (0: no number), the rest in SCANNED. */
+/**
+ * `leadingNumber` without an object per call: the length (0: no number), the rest in SCANNED. One
+ * pass over the characters (by code, not as one-character strings) that reads the value as it
+ * goes: with up to 15 digits the digits form an exact integer and one division by an exact power
+ * of ten rounds once, so the value is the double `Number()` gives for the same text; longer
+ * numbers go through `Number()`.
+ */
 export function scanNumber(text: string, at = 0): number {
-  let i = at;
   const n = text.length;
-  if (i < n && (text[i] === '-' || text[i] === '+' || text[i] === '−')) i++;
+  let i = at;
+  let c = i < n ? text.charCodeAt(i) : 0;
+  if (c === 0x2d /* - */ || c === 0x2b /* + */ || c === 0x2212 /* − */) c = ++i < n ? text.charCodeAt(i) : 0;
   const intStart = i;
-  while (i < n && isDigit(text.charCodeAt(i))) i++;
+  let mantissa = 0;
+  while (c >= 0x30 && c <= 0x39) {
+    mantissa = mantissa * 10 + (c - 0x30);
+    c = ++i < n ? text.charCodeAt(i) : 0;
+  }
   const intDigits = i - intStart;
+  let decimals = 0;
   let decimalComma = false;
-  if (i < n && (text[i] === '.' || text[i] === ',') && i + 1 < n && isDigit(text.charCodeAt(i + 1))) {
-    decimalComma = text[i] === ',';
-    i++;
-    while (i < n && isDigit(text.charCodeAt(i))) i++;
+  if ((c === 0x2e /* . */ || c === 0x2c /* , */) && i + 1 < n && isDigit(text.charCodeAt(i + 1))) {
+    decimalComma = c === 0x2c;
+    const fractionStart = ++i;
+    c = text.charCodeAt(i);
+    while (c >= 0x30 && c <= 0x39) {
+      mantissa = mantissa * 10 + (c - 0x30);
+      c = ++i < n ? text.charCodeAt(i) : 0;
+    }
+    decimals = i - fractionStart;
   } else if (intDigits === 0) {
     return 0;
   }
-  const value = numberValue(text, at, intStart, i);
-  if (!Number.isFinite(value)) return 0;
+  let value: number;
+  if (intDigits + decimals > 15) {
+    value = Number(text.slice(at, i).replace(',', '.').replace('−', '-'));
+    if (!Number.isFinite(value)) return 0;
+  } else {
+    const magnitude = decimals > 0 ? mantissa / POWERS_OF_TEN[decimals]! : mantissa;
+    value = compact(intStart > at && text.charCodeAt(at) !== 0x2b /* + */ ? -magnitude : magnitude);
+  }
   SCANNED.value = value;
   SCANNED.decimalComma = decimalComma;
   return i - at;
 }
 
 const POWERS_OF_TEN = [1, 10, 100, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15];
-
-/**
- * The value of a number already scanned: `[at, end)` holds an optional sign, then from
- * `digitsStart` digits with at most one `.` or `,`. With up to 15 digits the digits form an
- * exact integer and one division by an exact power of ten rounds once, so the result is the
- * double `Number()` gives for the same text; longer numbers go through `Number()`.
- */
-function numberValue(text: string, at: number, digitsStart: number, end: number): number {
-  let mantissa = 0;
-  let digits = 0;
-  let decimals = -1;
-  for (let k = digitsStart; k < end; k++) {
-    const c = text.charCodeAt(k);
-    if (c === 0x2e || c === 0x2c) { decimals = 0; continue; }
-    mantissa = mantissa * 10 + (c - 0x30);
-    digits++;
-    if (decimals >= 0) decimals++;
-  }
-  if (digits > 15) return Number(text.slice(at, end).replace(',', '.').replace('−', '-'));
-  const magnitude = decimals > 0 ? mantissa / POWERS_OF_TEN[decimals]! : mantissa;
-  return compact(digitsStart > at && text.charCodeAt(at) !== 0x2b /* + */ ? -magnitude : magnitude);
-}

@@ -8,7 +8,7 @@ import { SECTIONS, sectionByName, type SectionDef, type SectionId } from '../fie
 import { isKnownUnitSpelling, unitsForSpelling, UNITS } from '../fields/units';
 import { unitsWithin } from '../analysis/bounds';
 import { closest } from '../util/suggest';
-import { Chunk, isBlank, isDigit, leadingNumber, LEXED, lowerCase, releaseWords, scanNumber, scanWord, SCANNED, wordsOf, Word } from './lexer';
+import { Chunk, isBlank, isDigit, leadingNumber, LEXED, lowerCase, moreWordsOf, releaseWords, scanNumber, scanWord, SCANNED, wordsOf, Word } from './lexer';
 import type {
   BlankLine,
   ItemNode,
@@ -87,8 +87,13 @@ export function splitLines(text: string): { lines: LineSlice[]; eol: NoteTree['e
 export function parseNote(text: string): NoteTree {
   const nodes = new Array<LineNode>(countLines(text));
   let count = 0;
-  const eol = cutLines(text, (line) => { nodes[count] = parseLine(line, count); count++; });
-  return { lines: nodes, eol };
+  try {
+    const eol = cutLines(text, (line) => { nodes[count] = readLine(line, count); count++; });
+    return { lines: nodes, eol };
+  } finally {
+    // Once for the note, not after every line (see `releaseWords`).
+    releaseWords();
+  }
 }
 
 /** How many lines `cutLines` cuts `text` into: one more than its line ends (`\n`, `\r\n`, `\r`). */
@@ -192,12 +197,19 @@ function lineStartToken(chunk: Word): Chunk {
 
 export function parseLine(text: string, line: number): LineNode {
   try {
+    return readLine(text, line);
+  } finally {
+    releaseWords();
+  }
+}
+
+/** A line's node, the lexer's words not let go of (see `releaseWords`). */
+function readLine(text: string, line: number): LineNode {
+  try {
     return parseLineUnsafe(text, line);
   } catch {
     // Defensive: the parser is written not to throw, but a line must never take the note down.
     return new BlankNode(line, text, null, [{ check: 'stray-text', span: { start: 0, end: text.length }, message: 'This line could not be read.', fixes: NONE }]);
-  } finally {
-    releaseWords();
   }
 }
 
@@ -249,8 +261,10 @@ function parseLineUnsafe(text: string, line: number): LineNode {
   const bodyEnd = hash >= 0 ? hash : text.length;
   const comment: Token | null = hash >= 0 ? token(text.slice(hash), hash, text.length) : null;
   const body = hash >= 0 ? text.slice(0, bodyEnd) : text;
-  const chunks = wordsOf(body, 0, intern);
-  const doubledComma = LEXED.doubledComma;
+  // A timepoint line reads the words of its time and the first of its label; another line first
+  // reads two words, which tell its kind, and a note line no more (its prose is not read as words).
+  const timepoint = firstWordChar(body) === 0x40 /* @ */;
+  let chunks = wordsOf(body, 0, intern, timepoint ? TIMEPOINT_WORDS : 2);
   const first = chunks[0];
   if (!first) {
     // A line of commas only (`,`): nothing is read from it, and a comma is not a blank.
@@ -258,9 +272,12 @@ function parseLineUnsafe(text: string, line: number): LineNode {
     return new BlankNode(line, text, comment, comma < 0 ? NONE : [strayCommaIssue(body, comma, body.length, 'alone', '', text.length)]);
   }
 
-  if (first.text.charCodeAt(0) === 0x40 /* @ */) return parseTimepoint(body, chunks, line, text, comment);
+  if (timepoint) return parseTimepoint(body, chunks, line, text, comment);
 
   const section = sectionOf(first.text);
+  // A note line's prose is not read as words: what follows reads only its first two.
+  if (section?.id !== 'note') chunks = moreWordsOf(body, intern);
+  const doubledComma = LEXED.doubledComma;
   // The words of a line are reused for the next line: what the tree keeps is copied (`keep`), and a
   // section word at the start of its line is one token shared by every such line.
   const sectionToken: Token = section ? lineStartToken(first) : keep(first);
@@ -294,6 +311,15 @@ function parseLineUnsafe(text: string, line: number): LineNode {
   }
   const items = parseItems(section.id, chunks, 1, issues, text);
   return new SectionNode(line, text, comment, section.id, sectionToken, items, null, keptIssues(issues));
+}
+
+/** The first character of the first word of `body` (-1 for none): the lexer's words start after blanks and commas. */
+function firstWordChar(body: string): number {
+  for (let i = 0; i < body.length; i++) {
+    const c = body.charCodeAt(i);
+    if (c !== 0x2c /* , */ && !isBlank(c)) return c;
+  }
+  return -1;
 }
 
 /**
@@ -438,6 +464,13 @@ function leaveOutFullStop(chunks: Word[], issues: SyntaxIssue[]): void {
 }
 
 // ── timepoints ──────────────────────────────────────────────────────────
+
+/**
+ * The words of a timepoint line `parseTimepoint` reads: the `@`, at most three of its time and the
+ * first of its label (and the one after an offset, `splitOffset`); a line with more has no full
+ * stop glued to its time (`timeEndsWithFullStop`). The words of a label are not read as words.
+ */
+const TIMEPOINT_WORDS = 5;
 
 function parseTimepoint(body: string, chunks: Word[], line: number, text: string, comment: Token | null): LineNode {
   const issues = lineIssues();
@@ -1698,7 +1731,8 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
 
   while (i < n) {
     const chunk = chunks[i]!;
-    if (numberChunk(chunk) > 0 || readSlashGroup(chunk, source)) {
+    // Most words here are keys: one that starts with no number is no number and no slash group either.
+    if (scanWord(chunk) > 0 && (numberChunk(chunk) > 0 || readSlashGroup(chunk, source))) {
       const feet = count > 0 ? feetAndInchesIssue(items[count - 1]!, chunk, source) : null;
       if (feet !== null) {
         issues.push(feet);
@@ -1771,11 +1805,15 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
           }
         }
       } else {
-        // `bp 120 / 80`: a pair may be written with blanks around its slash.
-        const group = groupAt(chunks, i, source, field?.kind === 'pair', field?.id === 'bp' ? limit : -1);
+        // `bp 120 / 80`: a pair may be written with blanks around its slash. A word that does not start
+        // with a number starts no group, nor does a number that is the whole word unless the key takes
+        // a pair; then SCANNED still holds what `scanWord` read.
+        const lead = scanWord(next);
+        const tryGroup = lead > 0 && (lead < next.end - next.start || field?.kind === 'pair');
+        const group = tryGroup ? groupAt(chunks, i, source, field?.kind === 'pair', field?.id === 'bp' ? limit : -1) : null;
         const glued = GROUP.unit;
         const used = GROUP.used;
-        const length = group ? 0 : numberChunk(next);
+        const length = group ? 0 : tryGroup ? numberChunk(next) : lead;
         if (group) {
           value = group;
           i += used;
