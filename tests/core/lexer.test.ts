@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { chunkLine, LEXED, moreWordsOf, releaseWords, scanNumber, SCANNED, wordsOf } from '../../server/src/core/syntax/lexer';
+import { chunkLine, LEXED, moreWordsOf, releaseWords, scanNumber, SCANNED, wordsOf, type Vocabulary } from '../../server/src/core/syntax/lexer';
 
 describe('lexer', () => {
   it('cuts words at blanks and separating commas, keeping a decimal comma inside its word', () => {
@@ -61,6 +61,19 @@ describe('lexer', () => {
     const short = wordsOf('vitals hr 80').slice();
     releaseWords();
     expect([...long, ...short].every((w) => w.text === '' && w.body === '')).toBe(true);
+  });
+
+  it('gives a word of the vocabulary its kept text and its index, and no other word either', () => {
+    const words = ['hr', 'vitals'];
+    const vocabulary: Vocabulary = { words, indexAt: (body, start, end) => words.indexOf(body.slice(start, end)) };
+    const line = 'vitals hr 80 hrs';
+    const read = wordsOf(line, 0, vocabulary);
+    expect(read.map((w) => [w.text, w.known])).toEqual([['vitals', 1], ['hr', 0], ['80', -1], ['hrs', -1]]);
+    // A word given another text is no longer the word of the vocabulary it was.
+    read[1]!.text = 'h';
+    expect(read[1]!.known).toBe(-1);
+    releaseWords();
+    expect(read[0]!.known).toBe(-1);
   });
 
   it('reads a number without an object per number', () => {

@@ -67,6 +67,11 @@ export class Word {
     public afterComma = false,
     /** The line body the word is in. */
     public body = '',
+    /**
+     * Which word of the vocabulary given to `wordsOf` this word is (its index in `words`), or -1:
+     * what the caller knows of the words of its format is looked up by it, not by the text.
+     */
+    public known = -1,
   ) {
     this.cut = text;
   }
@@ -75,8 +80,10 @@ export class Word {
     return (this.cut ??= this.body.slice(this.start, this.end));
   }
 
+  /** The word made another text: no longer a word of the vocabulary (a caller that knows it is sets `known` after). */
   set text(text: string) {
     this.cut = text;
+    this.known = -1;
   }
 
   get span(): Span {
@@ -84,12 +91,13 @@ export class Word {
   }
 
   /** The word made another: the pooled words are reused from line to line (see `wordsOf`). */
-  reuse(text: string | null, start: number, end: number, afterComma: boolean, body: string): void {
+  reuse(text: string | null, start: number, end: number, afterComma: boolean, body: string, known: number): void {
     this.cut = text;
     this.start = start;
     this.end = end;
     this.afterComma = afterComma;
     this.body = body;
+    this.known = known;
   }
 }
 
@@ -151,50 +159,56 @@ export function releaseWords(): void {
   // By the most handed out, not the list's length: a caller may have shortened the list (a full stop left out).
   for (let k = 0; k < heldCount; k++) {
     const word = k < POOL_LIMIT ? POOL[k] : LIST[k];
-    if (word) word.reuse('', 0, 0, false, '');
+    if (word) word.reuse('', 0, 0, false, '', -1);
   }
   handedCount = 0;
   heldCount = 0;
 }
 
 /**
+ * The words of the caller's format (section names, keys, units), each kept once: a word of a line
+ * that is one of them is given its kept string as its text, so the tree does not hold a copy of
+ * `hr` per line, and its index as `known`.
+ */
+export interface Vocabulary {
+  readonly words: readonly string[];
+  /** The index in `words` of the text `[start, end)` of `body`, or -1 when it is none of them. */
+  indexAt(body: string, start: number, end: number): number;
+}
+
+/**
  * The words of a line body, in a reused list of reused words (see `Word`, `LIST`): valid until the
- * next call. `intern` may give a string equal to the text of `[start, end)` of the body, kept
- * elsewhere (the words of the format: section names, keys, units), so the tree does not hold a copy
- * of `hr` per line; null leaves the text to be cut out when read (see `Word`).
+ * next call. A word of `vocabulary` is given its kept text and index (see `Vocabulary`); another
+ * word's text is cut out when read (see `Word`).
  *
  * Given `max`, it stops after that many words (what the parser needs of a line of prose: a note
  * line's words after its first two, a timepoint's label, are not read as words); `moreWordsOf`
  * reads on. `LEXED.doubledComma` then says what the words read so far showed.
  */
-export function wordsOf(body: string, from = 0, intern?: (body: string, start: number, end: number) => string | null, max = Infinity): Word[] {
+export function wordsOf(body: string, from = 0, vocabulary?: Vocabulary, max = Infinity): Word[] {
   LEXED.doubledComma = false;
   handedCount = 0;
-  return lexFrom(body, from, intern, max);
+  return lexFrom(body, from, vocabulary, max);
 }
 
 /**
  * The words of the line `wordsOf` last read, read on up to `max` words in all, from where it stopped
  * (the same list, with the words after those it had). Valid until the next call of either.
  */
-export function moreWordsOf(body: string, intern?: (body: string, start: number, end: number) => string | null, max = Infinity): Word[] {
+export function moreWordsOf(body: string, vocabulary?: Vocabulary, max = Infinity): Word[] {
   if (LEXED.stoppedAt < 0 || handedCount >= max) return handedCount === 0 ? [] : LIST;
-  return lexFrom(body, LEXED.stoppedAt, intern, max);
+  return lexFrom(body, LEXED.stoppedAt, vocabulary, max);
 }
 
 /** Reads words of `body` from `from` after the `handedCount` words already in LIST, until `max` in all. */
-function lexFrom(body: string, from: number, intern: ((body: string, start: number, end: number) => string | null) | undefined, max: number): Word[] {
+function lexFrom(body: string, from: number, vocabulary: Vocabulary | undefined, max: number): Word[] {
   const words = LIST;
   let count = handedCount;
   let i = from;
   let sawComma = false;
   const n = body.length;
   LEXED.stoppedAt = -1;
-  while (i < n) {
-    if (count >= max) {
-      LEXED.stoppedAt = i;
-      break;
-    }
+  while (i < n && count < max) {
     const c = body.charCodeAt(i);
     const kind = c < 0x80 ? ASCII_KIND[c]! : isBlank(c) ? BLANK : 0;
     if (kind === BLANK) { i++; continue; }
@@ -213,19 +227,26 @@ function lexFrom(body: string, from: number, intern: ((body: string, start: numb
       // A comma between two digits stays in its word (a decimal comma); the word has a character before it.
       if (!(isDigit(body.charCodeAt(i - 1)) && i + 1 < n && isDigit(body.charCodeAt(i + 1)))) break;
     }
-    const text = intern ? intern(body, start, i) : null;
+    let known = -1;
+    let text: string | null = null;
+    if (vocabulary) {
+      known = vocabulary.indexAt(body, start, i);
+      if (known >= 0) text = vocabulary.words[known]!;
+    }
     let word: Word;
     if (count < POOL_LIMIT) {
       word = POOL[count] ?? (POOL[count] = new Word());
-      word.reuse(text, start, i, sawComma, body);
+      word.reuse(text, start, i, sawComma, body, known);
     } else {
-      word = new Word(text, start, i, sawComma, body);
+      word = new Word(text, start, i, sawComma, body, known);
     }
     if (count < words.length) words[count] = word;
     else words.push(word);
     count++;
     sawComma = false;
   }
+  // Stopped at `max` with more of the line to read: `moreWordsOf` reads on from here.
+  if (i < n) LEXED.stoppedAt = i;
   handedCount = count;
   if (count > heldCount) heldCount = count;
   if (count === 0) return [];
