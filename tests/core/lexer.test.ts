@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { chunkLine, releaseWords, scanNumber, SCANNED, wordsOf } from '../../server/src/core/syntax/lexer';
+import { chunkLine, LEXED, moreWordsOf, releaseWords, scanNumber, SCANNED, wordsOf, type Vocabulary } from '../../server/src/core/syntax/lexer';
 
 describe('lexer', () => {
   it('cuts words at blanks and separating commas, keeping a decimal comma inside its word', () => {
@@ -34,6 +34,46 @@ describe('lexer', () => {
     const words = wordsOf('note a long word: pneumothoraces');
     releaseWords();
     expect(words.every((w) => w.text === '')).toBe(true);
+  });
+
+  it('stops after `max` words, and reads on from there as if it had not stopped', () => {
+    const line = 'vitals, hr 80,, rr 18 ,,spo2 95 %';
+    const whole = wordsOf(line).map((w) => [w.text, w.start, w.end, w.afterComma]);
+    const doubled = LEXED.doubledComma;
+    const two = wordsOf(line, 0, undefined, 2);
+    expect(two.map((w) => w.text)).toEqual(['vitals', 'hr']);
+    expect(LEXED.doubledComma).toBe(false);
+    expect(moreWordsOf(line, undefined, 4).map((w) => w.text)).toEqual(['vitals', 'hr', '80', 'rr']);
+    const rest = moreWordsOf(line).map((w) => [w.text, w.start, w.end, w.afterComma]);
+    expect(rest).toEqual(whole);
+    expect(LEXED.doubledComma).toBe(doubled);
+    expect(doubled).toBe(true);
+    // Nothing left to read: the same list.
+    expect(moreWordsOf(line).length).toBe(whole.length);
+    // A line of as many words as `max` is read whole.
+    expect(wordsOf('a b', 0, undefined, 2).map((w) => w.text)).toEqual(['a', 'b']);
+    expect(LEXED.stoppedAt).toBe(-1);
+    releaseWords();
+  });
+
+  it('lets go of the words of every line read since it last let go, not only the last line\'s', () => {
+    const long = wordsOf('note a long line of prose: pneumothoraces').slice();
+    const short = wordsOf('vitals hr 80').slice();
+    releaseWords();
+    expect([...long, ...short].every((w) => w.text === '' && w.body === '')).toBe(true);
+  });
+
+  it('gives a word of the vocabulary its kept text and its index, and no other word either', () => {
+    const words = ['hr', 'vitals'];
+    const vocabulary: Vocabulary = { words, indexAt: (body, start, end) => words.indexOf(body.slice(start, end)) };
+    const line = 'vitals hr 80 hrs';
+    const read = wordsOf(line, 0, vocabulary);
+    expect(read.map((w) => [w.text, w.known])).toEqual([['vitals', 1], ['hr', 0], ['80', -1], ['hrs', -1]]);
+    // A word given another text is no longer the word of the vocabulary it was.
+    read[1]!.text = 'h';
+    expect(read[1]!.known).toBe(-1);
+    releaseWords();
+    expect(read[0]!.known).toBe(-1);
   });
 
   it('reads a number without an object per number', () => {

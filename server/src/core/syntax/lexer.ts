@@ -67,6 +67,11 @@ export class Word {
     public afterComma = false,
     /** The line body the word is in. */
     public body = '',
+    /**
+     * Which word of the vocabulary given to `wordsOf` this word is (its index in `words`), or -1:
+     * what the caller knows of the words of its format is looked up by it, not by the text.
+     */
+    public known = -1,
   ) {
     this.cut = text;
   }
@@ -75,8 +80,10 @@ export class Word {
     return (this.cut ??= this.body.slice(this.start, this.end));
   }
 
+  /** The word made another text: no longer a word of the vocabulary (a caller that knows it is sets `known` after). */
   set text(text: string) {
     this.cut = text;
+    this.known = -1;
   }
 
   get span(): Span {
@@ -84,12 +91,13 @@ export class Word {
   }
 
   /** The word made another: the pooled words are reused from line to line (see `wordsOf`). */
-  reuse(text: string | null, start: number, end: number, afterComma: boolean, body: string): void {
+  reuse(text: string | null, start: number, end: number, afterComma: boolean, body: string, known: number): void {
     this.cut = text;
     this.start = start;
     this.end = end;
     this.afterComma = afterComma;
     this.body = body;
+    this.known = known;
   }
 }
 
@@ -129,42 +137,78 @@ const POOL_LIMIT = 4096;
 const LIST: Word[] = [];
 /** How many words `wordsOf` handed out last. */
 let handedCount = 0;
+/** The most words handed out for one line since `releaseWords` last ran: those it lets go of. */
+let heldCount = 0;
 
 /**
  * What `wordsOf` saw of the line besides its words: whether two commas came with no word
  * between them (`hr 80,, rr 18`, also before the first word or after the last). One record for
  * every line, read right after the call: few lines have such commas, and the parser looks for
- * them only then.
+ * them only then. And where `wordsOf` stopped reading, given a `max` it reached before the end of
+ * the line (-1: at the end), for `moreWordsOf` to read on from.
  */
-export const LEXED: { doubledComma: boolean } = { doubledComma: false };
+export const LEXED: { doubledComma: boolean; stoppedAt: number } = { doubledComma: false, stoppedAt: -1 };
 
 /**
- * Lets go of the texts the words handed out last still hold (a word's text may be a slice that
- * keeps its whole note alive): the parser calls this when it is done with a line.
+ * Lets go of the texts the words handed out since the last call still hold (a word's text may be a
+ * slice that keeps its whole note alive): the parser calls this when it is done with a line, or
+ * with all the lines of a note (`parseNote`: the words of one line hold only text of the note, alive
+ * while it is parsed anyway, so they are let go of once, not after every line).
  */
 export function releaseWords(): void {
-  // By the count handed out, not the list's length: a caller may have shortened the list (a full stop left out).
-  for (let k = 0; k < handedCount; k++) {
+  // By the most handed out, not the list's length: a caller may have shortened the list (a full stop left out).
+  for (let k = 0; k < heldCount; k++) {
     const word = k < POOL_LIMIT ? POOL[k] : LIST[k];
-    if (word) word.reuse('', 0, 0, false, '');
+    if (word) word.reuse('', 0, 0, false, '', -1);
   }
   handedCount = 0;
+  heldCount = 0;
+}
+
+/**
+ * The words of the caller's format (section names, keys, units), each kept once: a word of a line
+ * that is one of them is given its kept string as its text, so the tree does not hold a copy of
+ * `hr` per line, and its index as `known`.
+ */
+export interface Vocabulary {
+  readonly words: readonly string[];
+  /** The index in `words` of the text `[start, end)` of `body`, or -1 when it is none of them. */
+  indexAt(body: string, start: number, end: number): number;
 }
 
 /**
  * The words of a line body, in a reused list of reused words (see `Word`, `LIST`): valid until the
- * next call. `intern` may give a string equal to the text of `[start, end)` of the body, kept
- * elsewhere (the words of the format: section names, keys, units), so the tree does not hold a copy
- * of `hr` per line; null leaves the text to be cut out when read (see `Word`).
+ * next call. A word of `vocabulary` is given its kept text and index (see `Vocabulary`); another
+ * word's text is cut out when read (see `Word`).
+ *
+ * Given `max`, it stops after that many words (what the parser needs of a line of prose: a note
+ * line's words after its first two, a timepoint's label, are not read as words); `moreWordsOf`
+ * reads on. `LEXED.doubledComma` then says what the words read so far showed.
  */
-export function wordsOf(body: string, from = 0, intern?: (body: string, start: number, end: number) => string | null): Word[] {
+export function wordsOf(body: string, from = 0, vocabulary?: Vocabulary, max = Infinity): Word[] {
+  LEXED.doubledComma = false;
+  handedCount = 0;
+  return lexFrom(body, from, vocabulary, max);
+}
+
+/**
+ * The words of the line `wordsOf` last read, read on up to `max` words in all, from where it stopped
+ * (the same list, with the words after those it had). Valid until the next call of either.
+ */
+export function moreWordsOf(body: string, vocabulary?: Vocabulary, max = Infinity): Word[] {
+  if (LEXED.stoppedAt < 0 || handedCount >= max) return handedCount === 0 ? [] : LIST;
+  return lexFrom(body, LEXED.stoppedAt, vocabulary, max);
+}
+
+/** Reads words of `body` from `from` after the `handedCount` words already in LIST, until `max` in all. */
+function lexFrom(body: string, from: number, vocabulary: Vocabulary | undefined, max: number): Word[] {
   const words = LIST;
-  let count = 0;
+  let count = handedCount;
   let i = from;
   let sawComma = false;
-  LEXED.doubledComma = false;
   const n = body.length;
-  while (i < n) {
+  LEXED.stoppedAt = -1;
+  while (i < n && count < max) {
     const c = body.charCodeAt(i);
     const kind = c < 0x80 ? ASCII_KIND[c]! : isBlank(c) ? BLANK : 0;
     if (kind === BLANK) { i++; continue; }
@@ -183,20 +227,28 @@ export function wordsOf(body: string, from = 0, intern?: (body: string, start: n
       // A comma between two digits stays in its word (a decimal comma); the word has a character before it.
       if (!(isDigit(body.charCodeAt(i - 1)) && i + 1 < n && isDigit(body.charCodeAt(i + 1)))) break;
     }
-    const text = intern ? intern(body, start, i) : null;
+    let known = -1;
+    let text: string | null = null;
+    if (vocabulary) {
+      known = vocabulary.indexAt(body, start, i);
+      if (known >= 0) text = vocabulary.words[known]!;
+    }
     let word: Word;
     if (count < POOL_LIMIT) {
       word = POOL[count] ?? (POOL[count] = new Word());
-      word.reuse(text, start, i, sawComma, body);
+      word.reuse(text, start, i, sawComma, body, known);
     } else {
-      word = new Word(text, start, i, sawComma, body);
+      word = new Word(text, start, i, sawComma, body, known);
     }
     if (count < words.length) words[count] = word;
     else words.push(word);
     count++;
     sawComma = false;
   }
+  // Stopped at `max` with more of the line to read: `moreWordsOf` reads on from here.
+  if (i < n) LEXED.stoppedAt = i;
   handedCount = count;
+  if (count > heldCount) heldCount = count;
   if (count === 0) return [];
   if (words.length !== count) words.length = count;
   return words;
@@ -237,49 +289,50 @@ const NO_NUMBER: NumberParts = Object.freeze({ length: 0, value: NaN, decimalCom
  */
 export const SCANNED: { value: number; decimalComma: boolean } = { value: 0, decimalComma: false };
 
-/** `leadingNumber` without an object per call: the length (0: no number), the rest in SCANNED. */
+/**
+ * `leadingNumber` without an object per call: the length (0: no number), the rest in SCANNED. One
+ * pass over the characters (by code, not as one-character strings) that reads the value as it
+ * goes: with up to 15 digits the digits form an exact integer and one division by an exact power
+ * of ten rounds once, so the value is the double `Number()` gives for the same text; longer
+ * numbers go through `Number()`.
+ */
 export function scanNumber(text: string, at = 0): number {
-  let i = at;
   const n = text.length;
-  if (i < n && (text[i] === '-' || text[i] === '+' || text[i] === '−')) i++;
+  let i = at;
+  let c = i < n ? text.charCodeAt(i) : 0;
+  if (c === 0x2d /* - */ || c === 0x2b /* + */ || c === 0x2212 /* − */) c = ++i < n ? text.charCodeAt(i) : 0;
   const intStart = i;
-  while (i < n && isDigit(text.charCodeAt(i))) i++;
+  let mantissa = 0;
+  while (c >= 0x30 && c <= 0x39) {
+    mantissa = mantissa * 10 + (c - 0x30);
+    c = ++i < n ? text.charCodeAt(i) : 0;
+  }
   const intDigits = i - intStart;
+  let decimals = 0;
   let decimalComma = false;
-  if (i < n && (text[i] === '.' || text[i] === ',') && i + 1 < n && isDigit(text.charCodeAt(i + 1))) {
-    decimalComma = text[i] === ',';
-    i++;
-    while (i < n && isDigit(text.charCodeAt(i))) i++;
+  if ((c === 0x2e /* . */ || c === 0x2c /* , */) && i + 1 < n && isDigit(text.charCodeAt(i + 1))) {
+    decimalComma = c === 0x2c;
+    const fractionStart = ++i;
+    c = text.charCodeAt(i);
+    while (c >= 0x30 && c <= 0x39) {
+      mantissa = mantissa * 10 + (c - 0x30);
+      c = ++i < n ? text.charCodeAt(i) : 0;
+    }
+    decimals = i - fractionStart;
   } else if (intDigits === 0) {
     return 0;
   }
-  const value = numberValue(text, at, intStart, i);
-  if (!Number.isFinite(value)) return 0;
+  let value: number;
+  if (intDigits + decimals > 15) {
+    value = Number(text.slice(at, i).replace(',', '.').replace('−', '-'));
+    if (!Number.isFinite(value)) return 0;
+  } else {
+    const magnitude = decimals > 0 ? mantissa / POWERS_OF_TEN[decimals]! : mantissa;
+    value = compact(intStart > at && text.charCodeAt(at) !== 0x2b /* + */ ? -magnitude : magnitude);
+  }
   SCANNED.value = value;
   SCANNED.decimalComma = decimalComma;
   return i - at;
 }
 
 const POWERS_OF_TEN = [1, 10, 100, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15];
-
-/**
- * The value of a number already scanned: `[at, end)` holds an optional sign, then from
- * `digitsStart` digits with at most one `.` or `,`. With up to 15 digits the digits form an
- * exact integer and one division by an exact power of ten rounds once, so the result is the
- * double `Number()` gives for the same text; longer numbers go through `Number()`.
- */
-function numberValue(text: string, at: number, digitsStart: number, end: number): number {
-  let mantissa = 0;
-  let digits = 0;
-  let decimals = -1;
-  for (let k = digitsStart; k < end; k++) {
-    const c = text.charCodeAt(k);
-    if (c === 0x2e || c === 0x2c) { decimals = 0; continue; }
-    mantissa = mantissa * 10 + (c - 0x30);
-    digits++;
-    if (decimals >= 0) decimals++;
-  }
-  if (digits > 15) return Number(text.slice(at, end).replace(',', '.').replace('−', '-'));
-  const magnitude = decimals > 0 ? mantissa / POWERS_OF_TEN[decimals]! : mantissa;
-  return compact(digitsStart > at && text.charCodeAt(at) !== 0x2b /* + */ ? -magnitude : magnitude);
-}

@@ -8,7 +8,7 @@ import { SECTIONS, sectionByName, type SectionDef, type SectionId } from '../fie
 import { isKnownUnitSpelling, unitsForSpelling, UNITS } from '../fields/units';
 import { unitsWithin } from '../analysis/bounds';
 import { closest } from '../util/suggest';
-import { Chunk, isBlank, isDigit, leadingNumber, LEXED, lowerCase, releaseWords, scanNumber, scanWord, SCANNED, wordsOf, Word } from './lexer';
+import { Chunk, isBlank, isDigit, leadingNumber, LEXED, lowerCase, moreWordsOf, releaseWords, scanNumber, scanWord, SCANNED, wordsOf, Word, type Vocabulary } from './lexer';
 import type {
   BlankLine,
   ItemNode,
@@ -87,8 +87,13 @@ export function splitLines(text: string): { lines: LineSlice[]; eol: NoteTree['e
 export function parseNote(text: string): NoteTree {
   const nodes = new Array<LineNode>(countLines(text));
   let count = 0;
-  const eol = cutLines(text, (line) => { nodes[count] = parseLine(line, count); count++; });
-  return { lines: nodes, eol };
+  try {
+    const eol = cutLines(text, (line) => { nodes[count] = readLine(line, count); count++; });
+    return { lines: nodes, eol };
+  } finally {
+    // Once for the note, not after every line (see `releaseWords`).
+    releaseWords();
+  }
 }
 
 /** How many lines `cutLines` cuts `text` into: one more than its line ends (`\n`, `\r\n`, `\r`). */
@@ -99,7 +104,7 @@ function countLines(text: string): number {
   return count;
 }
 
-/** The words of the format, kept once (see wordsOf's `intern`). */
+/** The words of the format, kept once (see `FORMAT_WORDS`). */
 const VOCABULARY: ReadonlyMap<string, string> = (() => {
   const words = new Map<string, string>();
   const add = (w: string) => { words.set(w, w); };
@@ -110,20 +115,23 @@ const VOCABULARY: ReadonlyMap<string, string> = (() => {
   return words;
 })();
 
-/** The longest word `intern` looks up: no word of the format is longer. */
+/** The longest word `knownIndex` looks up: no word of the format is longer. */
 const INTERNED_LENGTH = 12;
 
+/** The words of VOCABULARY in a list: a word of a line that is one of them knows its index (`Word.known`). */
+const VOCABULARY_WORDS: readonly string[] = [...VOCABULARY.keys()];
+
 /**
- * The words of VOCABULARY that start with a letter and are at most INTERNED_LENGTH long, by their
- * length and first character (`length * 128 + code`): a word of a line is looked up among the few
- * of its length and first letter in place, without cutting it out of its line first.
+ * The indexes of the words of VOCABULARY that start with a letter and are at most INTERNED_LENGTH
+ * long, by their length and first character (`length * 128 + code`): a word of a line is looked up
+ * among the few of its length and first letter in place, without cutting it out of its line first.
  */
-const VOCABULARY_BY_START: readonly (readonly string[] | undefined)[] = (() => {
-  const table: string[][] = [];
-  for (const w of VOCABULARY.keys()) {
-    if (w.length > INTERNED_LENGTH || !startsWithAsciiLetter(w.charCodeAt(0))) continue;
-    (table[w.length * 128 + w.charCodeAt(0)] ??= []).push(w);
-  }
+const VOCABULARY_BY_START: readonly (readonly number[] | undefined)[] = (() => {
+  const table: number[][] = [];
+  VOCABULARY_WORDS.forEach((w, index) => {
+    if (w.length > INTERNED_LENGTH || !startsWithAsciiLetter(w.charCodeAt(0))) return;
+    (table[w.length * 128 + w.charCodeAt(0)] ??= []).push(index);
+  });
   return table;
 })();
 
@@ -132,17 +140,44 @@ function startsWithAsciiLetter(c: number): boolean {
   return lower >= 0x61 && lower <= 0x7a;
 }
 
-/** The word of the format `[start, end)` of `body` is, kept once (see `VOCABULARY`); null when it is none. */
-function intern(body: string, start: number, end: number): string | null {
+/** The index in VOCABULARY_WORDS of the word of the format `[start, end)` of `body` is, or -1 when it is none. */
+function knownIndex(body: string, start: number, end: number): number {
   // Numbers are never words of the format: only words that start with a letter are looked up.
   const c = body.charCodeAt(start);
   if (end - start <= INTERNED_LENGTH && startsWithAsciiLetter(c)) {
     const candidates = VOCABULARY_BY_START[(end - start) * 128 + c];
     if (candidates !== undefined) {
-      for (let k = 0; k < candidates.length; k++) if (restMatches(body, start, candidates[k]!)) return candidates[k]!;
+      for (let k = 0; k < candidates.length; k++) if (restMatches(body, start, VOCABULARY_WORDS[candidates[k]!]!)) return candidates[k]!;
     }
   }
-  return null;
+  return -1;
+}
+
+/** The words of the format as the lexer looks them up (see `Vocabulary`). */
+const FORMAT_WORDS: Vocabulary = { words: VOCABULARY_WORDS, indexAt: knownIndex };
+
+/**
+ * What the parser asks of a word of the format, by its index (`Word.known`), worked out once for
+ * each: the section it names, whether it is a unit, and the field it is the key of in each section.
+ * A word of a line is looked up here in one read rather than in the maps of the registries.
+ */
+const SECTION_OF_KNOWN: readonly (SectionDef | null)[] = VOCABULARY_WORDS.map((w) => sectionByName(w) ?? null);
+const UNIT_KNOWN: readonly boolean[] = VOCABULARY_WORDS.map((w) => isKnownUnitSpelling(w));
+const FIELDS_OF_KNOWN: ReadonlyMap<SectionId, readonly (FieldDef | null)[]> = new Map(SECTIONS.map((s) => [s.id, VOCABULARY_WORDS.map((w) => fieldFor(s.id, w) ?? null)] as const));
+
+/** The fields of a section's keys by the index of the word (a row of FIELDS_OF_KNOWN). */
+function knownFieldsOf(section: SectionId): readonly (FieldDef | null)[] {
+  return FIELDS_OF_KNOWN.get(section) ?? NONE;
+}
+
+/** The field a word is the key of in `section`, whose row of FIELDS_OF_KNOWN is `fields` (`fieldFor` of its text when it is no word of the format). */
+function fieldOfWord(section: SectionId, fields: readonly (FieldDef | null)[], word: Word): FieldDef | null {
+  return word.known >= 0 ? fields[word.known] ?? null : fieldFor(section, word.text) ?? null;
+}
+
+/** Whether a word is a unit the format knows (`isKnownUnitSpelling`, looked up once for a word of the format). */
+function isUnitWord(word: Word): boolean {
+  return word.known >= 0 ? UNIT_KNOWN[word.known]! : isKnownUnitSpelling(word.text);
 }
 
 /**
@@ -155,49 +190,42 @@ function restMatches(body: string, start: number, word: string): boolean {
   return true;
 }
 
-/** The sections of the format's words (VOCABULARY), looked up once each. */
-const SECTION_OF_WORD = new Map<string, SectionDef | null>();
-
 /** The section a line's first word names (`sectionByName`, which lowers a copy of the word, asked once per word of the format). */
-function sectionOf(word: string): SectionDef | undefined {
-  if (VOCABULARY.get(word) !== word) return sectionByName(word);
-  let known = SECTION_OF_WORD.get(word);
-  if (known === undefined) {
-    known = sectionByName(word) ?? null;
-    SECTION_OF_WORD.set(word, known);
-  }
-  return known ?? undefined;
+function sectionOf(word: Word): SectionDef | undefined {
+  return (word.known >= 0 ? SECTION_OF_KNOWN[word.known] : sectionByName(word.text)) ?? undefined;
 }
 
 /** The `@` of a timepoint line that starts with it (most do): one token for all. */
 const MARKER_AT_LINE_START: Chunk = Object.freeze(token('@', 0, 1));
 
-/** Tokens of the format's words written at the start of a line (`vitals`), one per word. */
-const LINE_START_TOKENS = new Map<string, Chunk>();
+/** Tokens of the format's words written at the start of a line (`vitals`), one per word, by its index (`Word.known`). */
+const LINE_START_TOKENS: (Chunk | undefined)[] = new Array<Chunk | undefined>(VOCABULARY_WORDS.length).fill(undefined);
 
 /**
  * The token of a chunk, shared when it is a word of the format at the start of its line: tokens
  * never change, and a big note has thousands of lines that start with the same few words.
  */
 function lineStartToken(chunk: Word): Chunk {
-  if (chunk.start !== 0 || VOCABULARY.get(chunk.text) !== chunk.text) return keep(chunk);
-  let shared = LINE_START_TOKENS.get(chunk.text);
-  if (!shared) {
-    shared = Object.freeze(token(chunk.text, 0, chunk.end));
-    LINE_START_TOKENS.set(chunk.text, shared);
-  }
-  return shared;
+  if (chunk.start !== 0 || chunk.known < 0) return keep(chunk);
+  return (LINE_START_TOKENS[chunk.known] ??= Object.freeze(token(chunk.text, 0, chunk.end)));
 }
 
 
 export function parseLine(text: string, line: number): LineNode {
   try {
+    return readLine(text, line);
+  } finally {
+    releaseWords();
+  }
+}
+
+/** A line's node, the lexer's words not let go of (see `releaseWords`). */
+function readLine(text: string, line: number): LineNode {
+  try {
     return parseLineUnsafe(text, line);
   } catch {
     // Defensive: the parser is written not to throw, but a line must never take the note down.
     return new BlankNode(line, text, null, [{ check: 'stray-text', span: { start: 0, end: text.length }, message: 'This line could not be read.', fixes: NONE }]);
-  } finally {
-    releaseWords();
   }
 }
 
@@ -249,8 +277,10 @@ function parseLineUnsafe(text: string, line: number): LineNode {
   const bodyEnd = hash >= 0 ? hash : text.length;
   const comment: Token | null = hash >= 0 ? token(text.slice(hash), hash, text.length) : null;
   const body = hash >= 0 ? text.slice(0, bodyEnd) : text;
-  const chunks = wordsOf(body, 0, intern);
-  const doubledComma = LEXED.doubledComma;
+  // A timepoint line reads the words of its time and the first of its label; another line first
+  // reads two words, which tell its kind, and a note line no more (its prose is not read as words).
+  const timepoint = firstWordChar(body) === 0x40 /* @ */;
+  let chunks = wordsOf(body, 0, FORMAT_WORDS, timepoint ? TIMEPOINT_WORDS : 2);
   const first = chunks[0];
   if (!first) {
     // A line of commas only (`,`): nothing is read from it, and a comma is not a blank.
@@ -258,9 +288,12 @@ function parseLineUnsafe(text: string, line: number): LineNode {
     return new BlankNode(line, text, comment, comma < 0 ? NONE : [strayCommaIssue(body, comma, body.length, 'alone', '', text.length)]);
   }
 
-  if (first.text.charCodeAt(0) === 0x40 /* @ */) return parseTimepoint(body, chunks, line, text, comment);
+  if (timepoint) return parseTimepoint(body, chunks, line, text, comment);
 
-  const section = sectionOf(first.text);
+  const section = sectionOf(first);
+  // A note line's prose is not read as words: what follows reads only its first two.
+  if (section?.id !== 'note') chunks = moreWordsOf(body, FORMAT_WORDS);
+  const doubledComma = LEXED.doubledComma;
   // The words of a line are reused for the next line: what the tree keeps is copied (`keep`), and a
   // section word at the start of its line is one token shared by every such line.
   const sectionToken: Token = section ? lineStartToken(first) : keep(first);
@@ -294,6 +327,15 @@ function parseLineUnsafe(text: string, line: number): LineNode {
   }
   const items = parseItems(section.id, chunks, 1, issues, text);
   return new SectionNode(line, text, comment, section.id, sectionToken, items, null, keptIssues(issues));
+}
+
+/** The first character of the first word of `body` (-1 for none): the lexer's words start after blanks and commas. */
+function firstWordChar(body: string): number {
+  for (let i = 0; i < body.length; i++) {
+    const c = body.charCodeAt(i);
+    if (c !== 0x2c /* , */ && !isBlank(c)) return c;
+  }
+  return -1;
 }
 
 /**
@@ -430,7 +472,9 @@ function leaveOutFullStop(chunks: Word[], issues: SyntaxIssue[]): void {
     chunks.pop();
     message = 'A full stop at the end of the line is not part of any item; the line is read without it.';
   } else {
-    last.text = intern(written, 0, written.length - 1) ?? written.slice(0, -1);
+    const known = knownIndex(written, 0, written.length - 1);
+    last.text = known >= 0 ? VOCABULARY_WORDS[known]! : written.slice(0, -1);
+    last.known = known;
     last.end--;
     message = `\`${written}\` is read as \`${last.text}\`: a full stop at the end of the line is left out.`;
   }
@@ -438,6 +482,13 @@ function leaveOutFullStop(chunks: Word[], issues: SyntaxIssue[]): void {
 }
 
 // ── timepoints ──────────────────────────────────────────────────────────
+
+/**
+ * The words of a timepoint line `parseTimepoint` reads: the `@`, at most three of its time and the
+ * first of its label (and the one after an offset, `splitOffset`); a line with more has no full
+ * stop glued to its time (`timeEndsWithFullStop`). The words of a label are not read as words.
+ */
+const TIMEPOINT_WORDS = 5;
 
 function parseTimepoint(body: string, chunks: Word[], line: number, text: string, comment: Token | null): LineNode {
   const issues = lineIssues();
@@ -856,29 +907,31 @@ function groupAt(chunks: readonly Word[], i: number, source: string, spaced: boo
  */
 function readSlashGroup(chunk: Word, source: string, meanLimit = -1): PairNode | null {
   GROUP_UNIT_AT = -1;
-  if (!hasSlash(chunk)) return null;
-  const text = chunk.text;
-  let slash = text.indexOf('/');
-  // Numbers separated by single slashes, read in place (no split of the chunk).
+  let slash = slashIn(chunk, 0);
+  if (slash < 0) return null;
+  // Numbers separated by single slashes, read in place in the line (no split of the chunk, and
+  // its text is not cut out): `from`, `slash` and `end` are places in the chunk.
+  const body = chunk.body;
+  const wordStart = chunk.start;
   const packed = GROUP_NUMBERS;
   let count = 0;
   let comma = false;
   let from = 0;
   let groupEnd = chunk.end;
   for (let k = 0; ; k++) {
-    const end = slash < 0 ? text.length : slash;
+    const end = slash < 0 ? chunk.end - wordStart : slash;
     if (end === from) return null;
-    const length = scanNumber(text, from);
+    const length = scanWordFrom(chunk, from);
     if (length !== end - from) {
       // Only the last number may have a unit glued to it, and only one that starts with a letter or
       // %; a known unit with a slash of its own ends the group there (`7.28/56/71/26mmol/L`).
       if (length === 0) return null;
-      if (!isUnitStart(text.charCodeAt(from + length))) {
+      if (!isUnitStart(body.charCodeAt(wordStart + from + length))) {
         // `120/80(93)`: a blood pressure with its mean glued to it (see `groupAt`).
         if (!(slash < 0 && k > 0 && meanLimit >= 0 && bracketAt(source, chunk.start + from + length, meanLimit, null) !== NO_BRACKET)) return null;
       } else if (slash >= 0) {
         // (After one number only, it is a number and its unit: `24mmol/L`.)
-        if (k === 0 || !isKnownUnitSpelling(text.slice(from + length))) return null;
+        if (k === 0 || !isKnownUnitSpelling(body.slice(wordStart + from + length, chunk.end))) return null;
         slash = -1;
       }
       GROUP_UNIT_AT = from + length;
@@ -893,16 +946,30 @@ function readSlashGroup(chunk: Word, source: string, meanLimit = -1): PairNode |
     count++;
     if (slash < 0) break;
     from = slash + 1;
-    slash = text.indexOf('/', from);
+    slash = slashIn(chunk, from);
   }
   return new PairNode(source, chunk.start, groupEnd, count, comma);
 }
 
-/** Whether a word has a slash (looked for in its line: most words have none, and their texts need not be cut out). */
-function hasSlash(word: Word): boolean {
+/**
+ * Where the first slash of a word from `from` is (places in the word), or -1: looked for in its
+ * line, as most words have none and their texts need not be cut out.
+ */
+function slashIn(word: Word, from: number): number {
   const body = word.body;
-  for (let i = word.start; i < word.end; i++) if (body.charCodeAt(i) === 0x2f /* / */) return true;
-  return false;
+  for (let i = word.start + from; i < word.end; i++) if (body.charCodeAt(i) === 0x2f /* / */) return i - word.start;
+  return -1;
+}
+
+/**
+ * `scanNumber` of a word's text from `from` (a place in the word), read in its line as `scanWord`
+ * reads from the word's start: a number scanned in the line stops where it stops in the word but
+ * where it runs past the word's end (a sign before a separating comma and digits), where the
+ * word's own text is scanned instead.
+ */
+function scanWordFrom(word: Word, from: number): number {
+  const length = scanNumber(word.body, word.start + from);
+  return length <= word.end - word.start - from ? length : scanNumber(word.text, from);
 }
 
 const DECIMAL_DIGIT = /^\p{Nd}$/u;
@@ -1403,6 +1470,8 @@ function numberItem(keyText: string | null, keyName: string, implied: ItemNode['
 }
 
 const SHORTHAND_KEYS = ['ph', 'pco2', 'po2', 'hco3'] as const;
+/** The indexes of SHORTHAND_KEYS among the words of the format (-1 for one that is none). */
+const SHORTHAND_KNOWN: readonly number[] = SHORTHAND_KEYS.map((key) => VOCABULARY_WORDS.indexOf(key));
 
 const COUNT_WORDS = ['none', 'one', 'two', 'three', 'four'];
 
@@ -1473,8 +1542,8 @@ function unitWordAt(chunks: readonly Word[], i: number, section: SectionId, sour
   }
   const numberAfter = after !== undefined && !after.afterComma && scanWord(after) > 0;
   // `pco2 40 ph 7.4`: a unit spelling that is also a key of the section, with a number after it, is that key.
-  if (isKnownUnitSpelling(next.text)) return numberAfter && isKey(section, next.text) ? null : next;
-  if (isKey(section, next.text)) return null;
+  if (isUnitWord(next)) return numberAfter && fieldOfWord(section, knownFieldsOf(section), next) !== null ? null : next;
+  if (fieldOfWord(section, knownFieldsOf(section), next) !== null) return null;
   if (numberAfter) return null;
   // Something unit-like we do not know: keep it as the unit so the unit check can name it. Punctuation
   // (`hr 80 / rr 20`) is no unit: it is reported as stray text.
@@ -1648,6 +1717,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
   // a list of the exact length, kept as long as the line.
   const items = ITEMS;
   let count = 0;
+  const fields = knownFieldsOf(section);
 
 
   // Shorthand gas: abg 7.28/56/71/26 [kPa]
@@ -1669,7 +1739,9 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
           // Positions come back from the list whole but maybe as floating-point (it holds values too): `compact` keeps them unboxed.
           const start = compact(p[4 * k + 1]!);
           const end = compact(p[4 * k + 2]!);
-          items[count++] = new Item(null, keyName, 'shorthand', fieldFor(section, keyName) ?? null, null, source, p[4 * k]!, end, p[4 * k + 3] === 1, isPressure ? unit : null, start);
+          const known = SHORTHAND_KNOWN[k]!;
+          const field = known >= 0 ? fields[known] ?? null : fieldFor(section, keyName) ?? null;
+          items[count++] = new Item(null, keyName, 'shorthand', field, null, source, p[4 * k]!, end, p[4 * k + 3] === 1, isPressure ? unit : null, start);
         }
       }
     }
@@ -1727,7 +1799,8 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
 
   while (i < n) {
     const chunk = chunks[i]!;
-    if (numberChunk(chunk) > 0 || readSlashGroup(chunk, source)) {
+    // Most words here are keys: one that starts with no number is no number and no slash group either.
+    if (scanWord(chunk) > 0 && (numberChunk(chunk) > 0 || readSlashGroup(chunk, source))) {
       const feet = count > 0 ? feetAndInchesIssue(items[count - 1]!, chunk, source) : null;
       if (feet !== null) {
         issues.push(feet);
@@ -1779,15 +1852,14 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
       continue;
     }
     const key = chunk;
-    const keyName = lowerCase(chunk.text);
-    const field = fieldFor(section, chunk.text) ?? null;
+    const field = fieldOfWord(section, fields, chunk);
     i++;
     const next = chunks[i];
     let value: PairValue | WordValue | null = null;
     let unit: Located | null = null;
     if (next && !next.afterComma) {
       if (field?.kind === 'word') {
-        if (!isKey(section, next.text) || (field.words?.[lowerCase(next.text)] !== undefined)) {
+        if (fieldOfWord(section, fields, next) === null || (field.words?.[lowerCase(next.text)] !== undefined)) {
           if (field.id === 'device') {
             const dev = deviceWordAt(chunks, i);
             const used = dev?.used ?? 1;
@@ -1800,11 +1872,15 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
           }
         }
       } else {
-        // `bp 120 / 80`: a pair may be written with blanks around its slash.
-        const group = groupAt(chunks, i, source, field?.kind === 'pair', field?.id === 'bp' ? limit : -1);
+        // `bp 120 / 80`: a pair may be written with blanks around its slash. A word that does not start
+        // with a number starts no group, nor does a number that is the whole word unless the key takes
+        // a pair; then SCANNED still holds what `scanWord` read.
+        const lead = scanWord(next);
+        const tryGroup = lead > 0 && (lead < next.end - next.start || field?.kind === 'pair');
+        const group = tryGroup ? groupAt(chunks, i, source, field?.kind === 'pair', field?.id === 'bp' ? limit : -1) : null;
         const glued = GROUP.unit;
         const used = GROUP.used;
-        const length = group ? 0 : numberChunk(next);
+        const length = group ? 0 : tryGroup ? numberChunk(next) : lead;
         if (group) {
           value = group;
           i += used;
@@ -1830,7 +1906,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
             if (found !== NO_BRACKET && (found !== CLOSED || fieldFor(section, 'map') !== undefined)) {
               if (twoWords) unit = token(source.slice(unit!.start, open), unit!.start, open);
               else if (unit !== null && cut >= 0) unit = cut === 0 ? null : token(unit.text.slice(0, cut), unit.start, open);
-              items[count++] = otherItem(key.text, keyName, null, field, value, unit, key.start);
+              items[count++] = otherItem(key.text, key.text, null, field, value, unit, key.start);
               const mean = found === CLOSED ? bracketedMean(source, section) : null;
               if (mean !== null) items[count++] = mean;
               const end = chunksThrough(chunks, i, BRACKET.end);
@@ -1846,7 +1922,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
           i++;
           unit = unitAfter(gluedUnit(next, length), chunks, i, section, source);
           i += UNIT_CHUNKS;
-          items[count++] = numberItem(key.text, keyName, null, field, source, number, next.start + length, comma, unit, key.start);
+          items[count++] = numberItem(key.text, key.text, null, field, source, number, next.start + length, comma, unit, key.start);
           if (field?.kind === 'pair') {
             // `bp 120`: a key that takes two numbers with one; nothing would be read from it.
             issues.push({ check: 'missing-value', span: { start: key.start, end: next.start + length }, message: `\`${key.text}\` takes two numbers joined by a slash (\`${key.text} 120/80\`); \`${next.text.slice(0, length)}\` is one, so it is not read.`, fixes: NONE });
@@ -1861,7 +1937,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
     if (!value && field !== null) {
       issues.push({ check: 'missing-value', span: key.span, message: `\`${key.text}\` has no value.`, fixes: NONE });
     }
-    items[count++] = otherItem(key.text, keyName, null, field, value, unit, key.start);
+    items[count++] = otherItem(key.text, key.text, null, field, value, unit, key.start);
   }
 
   // Decimal commas anywhere in the line's numbers (few lines have one: asked of each item without building its number).
