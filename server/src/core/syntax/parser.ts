@@ -1571,11 +1571,15 @@ function isPercent(unit: Located | null): boolean {
  * flow is never in %): said (information), with fixes that write which was meant, the FiO2 read or,
  * where the line gives no flow of its own without a key (`offerFlow`), a flow in L/min.
  */
-function highFlowPercentIssue(device: string, source: string, item: Item, offerFlow: boolean): SyntaxIssue {
+function highFlowPercentIssue(device: string, source: string, item: Item, offerFlow: boolean, flowAfter: Item | null): SyntaxIssue {
   const start = item.span.start;
   const unit = item.unit!;
   const numberText = item.value!.text;
-  const fixes: LineFix[] = [{ title: `Write \`fio2 ${numberText} %\``, edits: [{ span: { start, end: start }, newText: 'fio2 ' }] }];
+  // A flow after the percentage (`hfnc 60 % 40 L/min`) is given its key too: after `fio2 60 %` no
+  // number is read as the device's.
+  const edits = [{ span: { start, end: start }, newText: 'fio2 ' }];
+  if (flowAfter !== null) edits.push({ span: { start: flowAfter.span.start, end: flowAfter.span.start }, newText: 'flow ' });
+  const fixes: LineFix[] = [{ title: `Write \`fio2 ${numberText} %\``, edits }];
   if (offerFlow) fixes.push({ title: `Write \`${numberText} L/min\``, edits: [{ span: unit.span, newText: 'L/min' }] });
   return {
     check: 'high-flow-percent',
@@ -1718,7 +1722,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
               }
             }
             const fio2 = percent ? items[count - (other === null ? 1 : 2)]! : other;
-            if (fio2 !== null) issues.push(highFlowPercentIssue(dev.text, source, fio2, other === null));
+            if (fio2 !== null) issues.push(highFlowPercentIssue(dev.text, source, fio2, other === null, percent ? other : null));
           }
         }
       }
