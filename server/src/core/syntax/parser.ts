@@ -1705,6 +1705,24 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
           if (keyName === 'fio2' && unit === null && number > 1) issues.push(venturiSettingIssue(dev.text, source.slice(next.start, next.start + length), next.start, next.start + length));
           items[count++] = numberItem(null, keyName, 'device-flow', fieldFor(section, keyName) ?? null, source, number, next.start + length, comma, unit, next.start);
           if (!highFlow && deviceWord !== 'venturi') afterDeviceNumber = i;
+          if (deviceWord === 'venturi' && !(keyName === 'fio2' && unit === null && number > 1)) {
+            // `venturi 8 L/min 28 %`, `venturi 28 % 8 L/min`: a Venturi mask is set by the FiO2 it
+            // gives and the flow its valve asks for, so a second number whose unit says it is the
+            // other setting is read as it, each without its key (as after `hfnc`). Not after a bare
+            // setting (`venturi 28`), which PN321 asks about, nor a bare second number.
+            const second = chunks[i];
+            const secondLength = second && !second.afterComma ? numberChunk(second) : 0;
+            if (secondLength > 0) {
+              const secondNumber = SCANNED.value;
+              const secondComma = SCANNED.decimalComma;
+              const secondUnit = unitAfter(gluedUnit(second!, secondLength), chunks, i + 1, section, source);
+              if (secondUnit !== null && isPercent(secondUnit) !== (keyName === 'fio2')) {
+                i += 1 + UNIT_CHUNKS;
+                const secondKey = keyName === 'fio2' ? 'flow' : 'fio2';
+                items[count++] = numberItem(null, secondKey, 'device-flow', fieldFor(section, secondKey) ?? null, source, secondNumber, second!.start + secondLength, secondComma, secondUnit, second!.start);
+              }
+            }
+          }
           if (highFlow) {
             // `hfnc 40 L/min 60 %`, `hfnc 60 % 40 L/min`: a flow and a percentage, each without its key.
             const second = chunks[i];
