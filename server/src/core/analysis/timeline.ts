@@ -686,11 +686,14 @@ function duplicates(stated: readonly (StatedValue | undefined)[], from: number, 
     if (s.fieldId === 'fio2' && s.section === 'oxygen') {
       // `oxygen venturi 28, fio2 0.28`, or the two on lines of their own: the FiO2 read from the
       // number after the device, and a `fio2` written. Later `fio2`s are compared with the one
-      // written; one written above the device's line only while it is the one in force.
+      // written; one written above the device's line is compared where it is the one in force:
+      // the first, or a later one written on an oxygen line of this timepoint after it (the
+      // oxygen held then is this timepoint's: the line of `earlier` replaced what came before).
+      const inForce = earlier.item.implied === null && s.item.implied === 'device-flow' ? heldOxygen.get('fio2')?.stated : undefined;
       const device = earlier.item.implied === 'device-flow' && s.item.implied === null ? earlier
-        : earlier.item.implied === null && s.item.implied === 'device-flow' && heldOxygen.get('fio2')?.stated === earlier ? s
+        : inForce !== undefined && inForce.item.implied === null && inForce.section === 'oxygen' ? s
         : null;
-      const written = device === earlier ? s : earlier;
+      const written = device === earlier ? s : device === s ? inForce! : earlier;
       if (device !== null && (device.line === written.line || pairsAcrossLines(lines[device.line]!, lines[written.line]!))) {
         if (device === earlier) seen.replace(s);
         const conflict = deviceFio2Conflict(device, written, lines);
