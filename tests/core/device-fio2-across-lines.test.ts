@@ -170,6 +170,43 @@ describe('what is not compared across lines', () => {
     expect(findings(text)[0]!.related?.map((r) => r.range.start.line)).toEqual([3]);
   });
 
+  it('two `fio2` written, both above the Venturi line: the setting is compared with the later, the one in force', () => {
+    const text = note('oxygen fio2 0.28', 'oxygen fio2 0.35', 'oxygen venturi 28');
+    expect(codes(text)).toEqual(['PN206@3', 'PN206@3']);
+    const [between, withSetting] = findings(text);
+    expect(between!.message).toBe('FiO2 is stated twice at this timepoint; the later value is used.');
+    expect(between!.related?.map((r) => r.range.start.line)).toEqual([2]);
+    expect(withSetting!.message).toBe('FiO2 is stated twice at this timepoint, and the two disagree: the Venturi setting `28` (line 5) gives 0.28, and `fio2 0.35` (line 4) gives 0.35. The `fio2` written (0.35) is used; keep the one that was given.');
+    expect(withSetting!.related?.map((r) => [r.range.start.line, r.range.start.character])).toEqual([[4, 15]]);
+    // The later `fio2` and the Venturi line hold as one, as two lines do: the device, and the `fio2` in force.
+    expect(values(text).numberOf('fio2')).toBeCloseTo(0.35, 10);
+    expect(values(text).get('device')?.stated.word).toBe('venturi');
+    // P/F = 80 ÷ 0.35 = 228.6 (Berlin Definition, JAMA 2012, as above).
+    expect(derived(text, 'pf_ratio').value).toBeCloseTo(228.571, 2);
+    expect(applyEdits(text, withSetting!.fixes[0]!.edits)).toBe(note('oxygen fio2 0.28', 'oxygen venturi fio2 0.35'));
+    expect(applyEdits(text, withSetting!.fixes[1]!.edits)).toBe(note('oxygen fio2 0.28', 'oxygen venturi fio2 28 %'));
+  });
+
+  it('two `fio2` written above the Venturi line, the later agreeing with the setting: only the PN206 between the two written', () => {
+    const text = note('oxygen fio2 0.35', 'oxygen fio2 0.28', 'oxygen venturi 28');
+    expect(codes(text)).toEqual(['PN206@3']);
+    expect(values(text).numberOf('fio2')).toBeCloseTo(0.28, 10);
+    expect(values(text).get('fio2')?.stated.line).toBe(3);
+    expect(values(text).get('device')?.stated.word).toBe('venturi');
+  });
+
+  it('a `fio2` in force on a line that names a device is that line\'s, and not compared with a later setting', () => {
+    const text = note('oxygen fio2 0.28', 'oxygen mask, fio2 0.35', 'oxygen venturi 28');
+    // The device and the FiO2 each stated twice, as plain duplicates; the Venturi line replaces the mask line.
+    expect(codes(text)).toEqual(['PN206@3', 'PN206@4', 'PN206@4']);
+    expect(findings(text).map((f) => f.message)).toEqual([
+      'FiO2 is stated twice at this timepoint; the later value is used.',
+      'Oxygen device is stated twice at this timepoint; the later value is used.',
+      'FiO2 is stated twice at this timepoint; the later value is used.',
+    ]);
+    expect(values(text).numberOf('fio2')).toBeCloseTo(0.28, 10);
+  });
+
   it('a `fio2` on a line that names a device of its own is that line\'s: two oxygen lines, as before', () => {
     expect(codes(note('oxygen venturi 28', 'oxygen mask, fio2 0.35'))).toEqual(['PN321@2', 'PN206@3', 'PN206@3']);
   });

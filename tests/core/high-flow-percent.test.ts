@@ -86,6 +86,12 @@ describe('a percentage after `hfnc`', () => {
     expect(valuesOf(text).numberOf('fio2')).toBeCloseTo(0.6, 10);
     expect(valuesOf(text).numberOf('o2_flow')).toBe(40);
     expect(codesOn(text, 2)).toEqual(['PN323']);
+    // Its fix writes the key of each: `fio2` alone would leave the flow after it without one.
+    const f = checkNote(text).findings.find((x) => x.code === 'PN323')!;
+    const fixed = applyEdits(text, f.fixes[0]!.edits);
+    expect(fixed.split('\n')[2]).toBe('oxygen hfnc fio2 60 % flow 40 L/min');
+    expect(codesOn(fixed, 2)).toEqual([]);
+    expect(valuesOf(fixed).numberOf('o2_flow')).toBe(40);
   });
 
   it('with a `fio2` of its own on the line: agreeing is no duplicate, disagreeing is PN206 naming both', () => {
@@ -95,6 +101,22 @@ describe('a percentage after `hfnc`', () => {
     expect(f.map((x) => x.code)).toEqual(['PN206']);
     expect(f[0]!.message).toBe('FiO2 is stated twice on this line, and the two disagree: `60 %` after `hfnc` gives 0.60, and `fio2 0.5` gives 0.50. The `fio2` written (0.50) is used; keep the one that was given.');
     expect(valuesOf(note('oxygen hfnc 60 %, fio2 0.5')).numberOf('fio2')).toBeCloseTo(0.5, 10);
+  });
+
+  it('disagreeing on one line: keeping the percentage writes it with its key, so the line is left clean (no PN206, no PN323)', () => {
+    for (const [line, kept] of [
+      ['oxygen hfnc 40 L/min 60 %, fio2 0.5', 'oxygen hfnc 40 L/min fio2 60 %'],
+      ['oxygen hfnc 60 %, fio2 0.5', 'oxygen hfnc fio2 60 %'],
+      ['oxygen hfnc 60 % 40 L/min, fio2 0.5', 'oxygen hfnc fio2 60 % flow 40 L/min'],
+    ] as const) {
+      const text = note(line);
+      const f = checkNote(text).findings.find((x) => x.code === 'PN206')!;
+      expect(f.fixes[1]!.title).toBe('Keep `60 %` as `fio2 60 %` (remove `fio2 0.5`)');
+      const fixed = applyEdits(text, f.fixes[1]!.edits);
+      expect(fixed.split('\n')[2]).toBe(kept);
+      expect(codesOn(fixed, 2)).toEqual([]);
+      expect(valuesOf(fixed).numberOf('fio2')).toBeCloseTo(0.6, 10);
+    }
   });
 
   it('a percentage that is no possible FiO2 is read, and reported as such', () => {

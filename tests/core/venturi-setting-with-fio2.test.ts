@@ -115,15 +115,31 @@ describe('a Venturi setting and an FiO2 that disagree', () => {
 
   it('offers to keep either, and each fix leaves a line with no finding', () => {
     const f = checkNote(text).findings.find((x) => x.code === 'PN206')!;
-    expect(f.fixes.map((x) => x.title)).toEqual(['Keep `fio2 0.35` (remove the Venturi setting `28`)', 'Keep the Venturi setting `28` (remove `fio2 0.35`)']);
+    expect(f.fixes.map((x) => x.title)).toEqual(['Keep `fio2 0.35` (remove the Venturi setting `28`)', 'Keep the Venturi setting `28` as `fio2 28 %` (remove `fio2 0.35`)']);
     const keepFio2 = applyEdits(text, f.fixes[0]!.edits);
     expect(keepFio2.split('\n')[2]).toBe('oxygen venturi, fio2 0.35');
     expect(codesOn(keepFio2, 2)).toEqual([]);
     expect(fio2Of(keepFio2)).toBeCloseTo(0.35, 10);
+    // Keeping the bare setting writes it with its key, as on two lines: what PN321 would ask for
+    // once the `fio2` is gone is done by the same fix, so nothing is left to say.
     const keepSetting = applyEdits(text, f.fixes[1]!.edits);
-    expect(keepSetting.split('\n')[2]).toBe('oxygen venturi 28');
-    expect(codesOn(keepSetting, 2)).toEqual(['PN321']);
+    expect(keepSetting.split('\n')[2]).toBe('oxygen venturi fio2 28 %');
+    expect(codesOn(keepSetting, 2)).toEqual([]);
     expect(fio2Of(keepSetting)).toBeCloseTo(0.28, 10);
+  });
+
+  it('keeping a bare setting written before other items, or with the `fio2` first among them, leaves a clean line too', () => {
+    for (const [line, kept] of [
+      ['oxygen venturi 28, flow 8 L/min, fio2 0.35', 'oxygen venturi fio2 28 %, flow 8 L/min'],
+      ['oxygen venturi 28, fio2 0.35, flow 8 L/min', 'oxygen venturi fio2 28 %, flow 8 L/min'],
+      ['oxygen venturi 40 fio2 0.35', 'oxygen venturi fio2 40 %'],
+    ] as const) {
+      const t = note(line);
+      const f = checkNote(t).findings.find((x) => x.code === 'PN206')!;
+      const fixed = applyEdits(t, f.fixes[1]!.edits);
+      expect(fixed.split('\n')[2]).toBe(kept);
+      expect(codesOn(fixed, 2)).toEqual([]);
+    }
   });
 
   it('the fixes keep what else the line says, and the setting keeps its unit', () => {

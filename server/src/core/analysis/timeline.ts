@@ -686,11 +686,14 @@ function duplicates(stated: readonly (StatedValue | undefined)[], from: number, 
     if (s.fieldId === 'fio2' && s.section === 'oxygen') {
       // `oxygen venturi 28, fio2 0.28`, or the two on lines of their own: the FiO2 read from the
       // number after the device, and a `fio2` written. Later `fio2`s are compared with the one
-      // written; one written above the device's line only while it is the one in force.
+      // written; one written above the device's line is compared where it is the one in force:
+      // the first, or a later one written on an oxygen line of this timepoint after it (the
+      // oxygen held then is this timepoint's: the line of `earlier` replaced what came before).
+      const inForce = earlier.item.implied === null && s.item.implied === 'device-flow' ? heldOxygen.get('fio2')?.stated : undefined;
       const device = earlier.item.implied === 'device-flow' && s.item.implied === null ? earlier
-        : earlier.item.implied === null && s.item.implied === 'device-flow' && heldOxygen.get('fio2')?.stated === earlier ? s
+        : inForce !== undefined && inForce.item.implied === null && inForce.section === 'oxygen' ? s
         : null;
-      const written = device === earlier ? s : earlier;
+      const written = device === earlier ? s : device === s ? inForce! : earlier;
       if (device !== null && (device.line === written.line || pairsAcrossLines(lines[device.line]!, lines[written.line]!))) {
         if (device === earlier) seen.replace(s);
         const conflict = deviceFio2Conflict(device, written, lines);
@@ -799,8 +802,20 @@ function deviceFio2Conflict(device: StatedValue, written: StatedValue, lines: re
     : `The \`${written.item.key?.text ?? 'fio2'}\` written replaces ${venturi ? 'the setting' : 'the percentage'}, but is not used itself (see its finding)`;
   const kept = venturi ? `the Venturi setting \`${deviceText}\`` : `\`${deviceText}\``;
   const related = [{ line: device.line, span: device.item.span, message: venturi ? 'the Venturi setting, read as the FiO2' : 'the percentage after the device, read as the FiO2' }];
+  // Keeping the device's number writes it with its key where it was said to be read as the FiO2
+  // (PN321, PN323), on one line as on two, so nothing is left to say: `fio2` before it, ` %` after
+  // a bare setting, and `flow` before a flow that follows it without a key (`hfnc 60 % 40 L/min`).
+  const said = deviceLine.issues.some((i) => (i.check === 'venturi-setting' || i.check === 'high-flow-percent') && i.span.start === device.item.span.start);
+  const asKey = `fio2 ${deviceText}${device.item.unit === null ? ' %' : ''}`;
+  const keepTitle = said ? `Keep ${kept} as \`${asKey}\` (remove \`${writtenText}\`)` : `Keep ${kept} (remove \`${writtenText}\`)`;
+  const keepDevice = said ? keyedDeviceEdits(device, items[at + 1], device.line) : [];
   if (device.line === written.line) {
     const before = items[items.indexOf(written.item) - 1];
+    const removed = { start: before !== undefined ? before.span.end : written.item.span.start, end: written.item.span.end };
+    // A removal that starts where a bare setting ends takes its ` %` (two edits at one place).
+    const joined = keepDevice.find((e) => e.span.start === removed.start && e.span.end === removed.start);
+    const keepEdits: LineEdit[] = keepDevice.filter((e) => e !== joined).map((e) => ({ span: e.span, newText: e.newText }));
+    keepEdits.push({ span: removed, newText: joined !== undefined ? joined.newText : '' });
     return {
       check: 'duplicate-key',
       line: written.line,
@@ -808,7 +823,7 @@ function deviceFio2Conflict(device: StatedValue, written: StatedValue, lines: re
       message: `FiO2 is stated twice on this line, and the two disagree: ${named} gives ${formatNumber(a, decimalsOf(stepA))}, and \`${writtenText}\` gives ${formatNumber(b, decimalsOf(stepB))}. ${used}; keep the one that was given.`,
       fixes: [
         { title: `Keep \`${writtenText}\` (remove ${kept})`, edits: [{ span: { start: at > 0 ? items[at - 1]!.span.end : device.item.span.start, end: device.item.span.end }, newText: '' }] },
-        { title: `Keep ${kept} (remove \`${writtenText}\`)`, edits: [{ span: { start: before !== undefined ? before.span.end : written.item.span.start, end: written.item.span.end }, newText: '' }] },
+        { title: keepTitle, edits: keepEdits },
       ],
       related,
     };
@@ -817,10 +832,6 @@ function deviceFio2Conflict(device: StatedValue, written: StatedValue, lines: re
   // where the device's number was (`oxygen venturi fio2 0.35`); keeping the device's number writes
   // it with its key where it was said to be read as the FiO2 (PN321, PN323), so nothing is left to say.
   const removal = removalOf(written, lines);
-  const said = deviceLine.issues.some((i) => (i.check === 'venturi-setting' || i.check === 'high-flow-percent') && i.span.start === device.item.span.start);
-  const asKey = `fio2 ${deviceText}${device.item.unit === null ? ' %' : ''}`;
-  const keepDevice: LineEdit[] = said ? [{ span: { start: device.item.span.start, end: device.item.span.start }, newText: 'fio2 ', line: device.line }] : [];
-  if (said && device.item.unit === null) keepDevice.push({ span: { start: device.item.span.end, end: device.item.span.end }, newText: ' %', line: device.line });
   return {
     check: 'duplicate-key',
     line: written.line,
@@ -828,10 +839,24 @@ function deviceFio2Conflict(device: StatedValue, written: StatedValue, lines: re
     message: `FiO2 is stated twice at this timepoint, and the two disagree: ${named} (line ${device.line + 1}) gives ${formatNumber(a, decimalsOf(stepA))}, and \`${writtenText}\` (line ${written.line + 1}) gives ${formatNumber(b, decimalsOf(stepB))}. ${used}; keep the one that was given.`,
     fixes: [
       { title: `Keep \`${writtenText}\` (remove ${kept})`, edits: ordered(removal, [{ span: device.item.span, newText: writtenText, line: device.line }]) },
-      { title: said ? `Keep ${kept} as \`${asKey}\` (remove \`${writtenText}\`)` : `Keep ${kept} (remove \`${writtenText}\`)`, edits: ordered(removal, keepDevice) },
+      { title: keepTitle, edits: ordered(removal, keepDevice) },
     ],
     related,
   };
+}
+
+/**
+ * The edits that write the FiO2 read after the device with its key (`venturi 28` → `venturi fio2
+ * 28 %`, `hfnc 60 %` → `hfnc fio2 60 %`), in the order of the text; where a flow follows it without a
+ * key (`hfnc 60 % 40 L/min`), that flow is given its key too, since after a key no number is read
+ * as the device's.
+ */
+function keyedDeviceEdits(device: StatedValue, next: ItemNode | undefined, line: number): LineEdit[] {
+  const span = device.item.span;
+  const edits: LineEdit[] = [{ span: { start: span.start, end: span.start }, newText: 'fio2 ', line }];
+  if (device.item.unit === null) edits.push({ span: { start: span.end, end: span.end }, newText: ' %', line });
+  if (next !== undefined && next.implied === 'device-flow') edits.push({ span: { start: next.span.start, end: next.span.start }, newText: 'flow ', line });
+  return edits;
 }
 
 /** The removal of the `fio2` written and the edits of the device's line, in the order of the text. */

@@ -1640,11 +1640,15 @@ function isPercent(unit: Located | null): boolean {
  * flow is never in %): said (information), with fixes that write which was meant, the FiO2 read or,
  * where the line gives no flow of its own without a key (`offerFlow`), a flow in L/min.
  */
-function highFlowPercentIssue(device: string, source: string, item: Item, offerFlow: boolean): SyntaxIssue {
+function highFlowPercentIssue(device: string, source: string, item: Item, offerFlow: boolean, flowAfter: Item | null): SyntaxIssue {
   const start = item.span.start;
   const unit = item.unit!;
   const numberText = item.value!.text;
-  const fixes: LineFix[] = [{ title: `Write \`fio2 ${numberText} %\``, edits: [{ span: { start, end: start }, newText: 'fio2 ' }] }];
+  // A flow after the percentage (`hfnc 60 % 40 L/min`) is given its key too: after `fio2 60 %` no
+  // number is read as the device's.
+  const edits = [{ span: { start, end: start }, newText: 'fio2 ' }];
+  if (flowAfter !== null) edits.push({ span: { start: flowAfter.span.start, end: flowAfter.span.start }, newText: 'flow ' });
+  const fixes: LineFix[] = [{ title: `Write \`fio2 ${numberText} %\``, edits }];
   if (offerFlow) fixes.push({ title: `Write \`${numberText} L/min\``, edits: [{ span: unit.span, newText: 'L/min' }] });
   return {
     check: 'high-flow-percent',
@@ -1773,6 +1777,24 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
           if (keyName === 'fio2' && unit === null && number > 1) issues.push(venturiSettingIssue(dev.text, source.slice(next.start, next.start + length), next.start, next.start + length));
           items[count++] = numberItem(null, keyName, 'device-flow', fieldFor(section, keyName) ?? null, source, number, next.start + length, comma, unit, next.start);
           if (!highFlow && deviceWord !== 'venturi') afterDeviceNumber = i;
+          if (deviceWord === 'venturi' && !(keyName === 'fio2' && unit === null && number > 1)) {
+            // `venturi 8 L/min 28 %`, `venturi 28 % 8 L/min`: a Venturi mask is set by the FiO2 it
+            // gives and the flow its valve asks for, so a second number whose unit says it is the
+            // other setting is read as it, each without its key (as after `hfnc`). Not after a bare
+            // setting (`venturi 28`), which PN321 asks about, nor a bare second number.
+            const second = chunks[i];
+            const secondLength = second && !second.afterComma ? numberChunk(second) : 0;
+            if (secondLength > 0) {
+              const secondNumber = SCANNED.value;
+              const secondComma = SCANNED.decimalComma;
+              const secondUnit = unitAfter(gluedUnit(second!, secondLength), chunks, i + 1, section, source);
+              if (secondUnit !== null && isPercent(secondUnit) !== (keyName === 'fio2')) {
+                i += 1 + UNIT_CHUNKS;
+                const secondKey = keyName === 'fio2' ? 'flow' : 'fio2';
+                items[count++] = numberItem(null, secondKey, 'device-flow', fieldFor(section, secondKey) ?? null, source, secondNumber, second!.start + secondLength, secondComma, secondUnit, second!.start);
+              }
+            }
+          }
           if (highFlow) {
             // `hfnc 40 L/min 60 %`, `hfnc 60 % 40 L/min`: a flow and a percentage, each without its key.
             const second = chunks[i];
@@ -1790,7 +1812,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
               }
             }
             const fio2 = percent ? items[count - (other === null ? 1 : 2)]! : other;
-            if (fio2 !== null) issues.push(highFlowPercentIssue(dev.text, source, fio2, other === null));
+            if (fio2 !== null) issues.push(highFlowPercentIssue(dev.text, source, fio2, other === null, percent ? other : null));
           }
         }
       }
