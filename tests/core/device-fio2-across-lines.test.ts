@@ -10,10 +10,9 @@
 // same precision rule, nothing where they agree, PN206 naming both values and their lines where they
 // disagree, with fixes that keep either; the device and the `fio2` written are both in force, the
 // `fio2` written used, in either order of the lines.
-import { parse } from 'csv-parse/sync';
 import { describe, expect, it } from 'vitest';
+import { fhirFio2Values, firstCsvRow } from '../helpers/first-timepoint-exports';
 import { checkNote } from '../../server/src/core/check-note';
-import { csvCells, csvHeader, exportColumns, timepointCells, toFhirBundle } from '../../server/src/core/export';
 import { codeActions } from '../../server/src/core/service/actions';
 import { applyEdits } from '../../server/src/core/service/text-edits';
 import { NoteSession } from '../../server/src/core/session';
@@ -26,18 +25,6 @@ const note = (...oxygen: string[]) => `${PATIENT}@ day 1 08:00\n${oxygen.join('\
 const findings = (text: string) => checkNote(text).findings.filter((f) => f.range.start.line >= 2 && f.code !== 'PN410' && f.code !== 'PN411' && f.code !== 'PN412');
 const codes = (text: string) => findings(text).map((f) => `${f.code}@${f.range.start.line}`);
 const values = (text: string) => checkNote(text).analysis.timeline.timepoints[0]!.values;
-const plain = { redactProse: false, shiftDays: 0 } as const;
-
-function csvRow(text: string): Record<string, string> {
-  const result = checkNote(text, {}, { keepDerivations: true });
-  const csv = csvHeader(exportColumns()) + timepointCells('a.pneu', result, plain).map((c) => csvCells(c)).join('');
-  return (parse(csv, { columns: true }) as Record<string, string>[])[0]!;
-}
-
-function fhirFio2(text: string): (number | undefined)[] {
-  const bundle = toFhirBundle('a.pneu', checkNote(text, {}, { keepDerivations: true }), plain);
-  return (bundle.entry ?? []).map((e) => e.resource).filter((o) => /^obs-\d+-fio2/.test(o.id)).map((o) => o.valueQuantity?.value);
-}
 
 describe('a Venturi setting and a `fio2` on another oxygen line that agree', () => {
   const agreeing: [string, string][] = [
@@ -61,8 +48,8 @@ describe('a Venturi setting and a `fio2` on another oxygen line that agree', () 
       // P/F = PaO2 ÷ FiO2 = 80 ÷ 0.28 = 285.7 (Horowitz index; ARDS Definition Task Force, Ranieri VM
       // et al., "Acute respiratory distress syndrome: the Berlin Definition", JAMA 2012;307:2526–2533).
       expect(derived(text, 'pf_ratio').value).toBeCloseTo(285.714, 2);
-      expect(csvRow(text).fio2_fraction).toBe('0.28');
-      expect(fhirFio2(text)).toEqual([0.28]);
+      expect(firstCsvRow(text).fio2_fraction).toBe('0.28');
+      expect(fhirFio2Values(text)).toEqual([0.28]);
     }
   });
 
@@ -107,10 +94,10 @@ describe('a Venturi setting and a `fio2` on another oxygen line that disagree', 
       // PAO2 = 0.35 × (760 − 47) − 40 ÷ 0.8 = 199.55, A–a = 119.55 (simplified alveolar gas
       // equation; common practice, no source).
       expect(derived(text, 'aa_gradient').value).toBeCloseTo(119.55, 2);
-      const row = csvRow(text);
+      const row = firstCsvRow(text);
       expect(row.fio2_fraction).toBe('0.35');
       expect(row.fio2_in_force).toBe('0.35');
-      expect(fhirFio2(text)).toEqual([0.35]);
+      expect(fhirFio2Values(text)).toEqual([0.35]);
     }
   });
 

@@ -7,10 +7,9 @@
 // precise of the two as written) that is no duplicate: it was PN206 "stated twice". When they
 // disagree it is a real conflict: PN206 names both values, where each comes from and which is used
 // (the `fio2` written, the later one, as before), with a fix that keeps either.
-import { parse } from 'csv-parse/sync';
 import { describe, expect, it } from 'vitest';
+import { fhirFio2Values, firstCsvRow } from '../helpers/first-timepoint-exports';
 import { checkNote } from '../../server/src/core/check-note';
-import { csvCells, csvHeader, exportColumns, timepointCells, toFhirBundle } from '../../server/src/core/export';
 import { applyEdits } from '../../server/src/core/service/text-edits';
 import { derived } from '../derive/helpers';
 
@@ -18,18 +17,6 @@ const PATIENT = 'patient age 60 y, sex female, height 165 cm\n';
 const note = (oxygen: string) => `${PATIENT}@ day 1 08:00\n${oxygen}\nabg ph 7.40, pco2 40, po2 80\n`;
 const codesOn = (text: string, line: number) => checkNote(text).findings.filter((f) => f.range.start.line === line).map((f) => f.code);
 const fio2Of = (text: string) => checkNote(text).analysis.timeline.timepoints[0]!.values.numberOf('fio2');
-const plain = { redactProse: false, shiftDays: 0 } as const;
-
-function csvRow(text: string): Record<string, string> {
-  const result = checkNote(text, {}, { keepDerivations: true });
-  const csv = csvHeader(exportColumns()) + timepointCells('a.pneu', result, plain).map((c) => csvCells(c)).join('');
-  return (parse(csv, { columns: true }) as Record<string, string>[])[0]!;
-}
-
-function fhirFio2(text: string): (number | undefined)[] {
-  const bundle = toFhirBundle('a.pneu', checkNote(text, {}, { keepDerivations: true }), plain);
-  return (bundle.entry ?? []).map((e) => e.resource).filter((o) => /^obs-\d+-fio2/.test(o.id)).map((o) => o.valueQuantity?.value);
-}
 
 describe('a Venturi setting and an FiO2 that agree', () => {
   const agreeing = [
@@ -67,11 +54,11 @@ describe('a Venturi setting and an FiO2 that agree', () => {
     // Simplified alveolar gas equation, PAO2 = 0.28 × (760 − 47) − 40 ÷ 0.8 = 149.64 mmHg, A–a =
     // 149.64 − 80 = 69.64 (common practice, no source).
     expect(derived(text, 'aa_gradient').value).toBeCloseTo(69.64, 2);
-    const row = csvRow(text);
+    const row = firstCsvRow(text);
     expect(row.fio2_fraction).toBe('0.28');
     expect(row.fio2_in_force).toBe('0.28');
     expect(row.o2_flow_L_min).toBe('');
-    expect(fhirFio2(text)).toEqual([0.28]);
+    expect(fhirFio2Values(text)).toEqual([0.28]);
   });
 
   it('a `fio2` written twice beside the setting is still stated twice', () => {
@@ -107,10 +94,10 @@ describe('a Venturi setting and an FiO2 that disagree', () => {
     expect(derived(text, 'pf_ratio').value).toBeCloseTo(228.571, 2);
     // PAO2 = 0.35 × 713 − 40 ÷ 0.8 = 199.55, A–a = 119.55 (common practice, no source).
     expect(derived(text, 'aa_gradient').value).toBeCloseTo(119.55, 2);
-    const row = csvRow(text);
+    const row = firstCsvRow(text);
     expect(row.fio2_fraction).toBe('0.35');
     expect(row.fio2_in_force).toBe('0.35');
-    expect(fhirFio2(text)).toEqual([0.35]);
+    expect(fhirFio2Values(text)).toEqual([0.35]);
   });
 
   it('offers to keep either, and each fix leaves a line with no finding', () => {
