@@ -210,7 +210,7 @@ function lineStartToken(chunk: Word): Chunk {
   return (LINE_START_TOKENS[chunk.known] ??= Object.freeze(token(chunk.text, 0, chunk.end)));
 }
 
-
+/** One line's node, the lexer's words let go of after it. */
 export function parseLine(text: string, line: number): LineNode {
   try {
     return readLine(text, line);
