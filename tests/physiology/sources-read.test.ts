@@ -19,7 +19,7 @@ import {
   RESPIRATORY_HCO3_COEFFICIENTS_PER_10_MMHG,
   SOURCES as ACID_BASE,
 } from '../../server/src/core/physiology/acid-base';
-import { SOURCES as GAS_EXCHANGE } from '../../server/src/core/physiology/gas-exchange';
+import { OSI_MAX_SPO2_PERCENT, oxygenSaturationIndex, SOURCES as GAS_EXCHANGE } from '../../server/src/core/physiology/gas-exchange';
 
 /** Per mmHg, as read; Pneumark's spans are per 10 mmHg. */
 const NARINS_EMMETT_AS_ADAPTED = { acuteAcidosis: 0.1, chronicAcidosis: 0.35, acuteAlkalosis: 0.2, chronicAlkalosis: 0.5 } as const;
@@ -70,5 +70,24 @@ describe("Winters' formula against the regression as read in the Kidney360 2022 
 describe('AARC capnography guideline of 2003', () => {
   it('names its author, read in the summary of its 2011 update', () => {
     expect(GAS_EXCHANGE['arterial-end-tidal-co2']).toContain('McArthur CD');
+  });
+});
+
+// The SpO2 limit of the oxygen saturation index: "When Spo2 is used, ensure that Spo2 is ≤ 97%",
+// read in a footnote of table 5 (the definition statements) of the second Pediatric Acute Lung
+// Injury Consensus Conference, PALICC-2, at pmc.ncbi.nlm.nih.gov/articles/PMC9848214; the OI and
+// OSI bands of the first (OI 4–8, 8–16, ≥ 16; OSI 5–7.5, 7.5–12.3, ≥ 12.3) read in its table as
+// reproduced at PMC6589490, table 1 (Pediatr Allergy Immunol Pulmonol 2019;32:35–44).
+describe('PALICC: the SpO2 limit of the oxygen saturation index, as read', () => {
+  it('is 97 %, the limit PALICC-2 sets for any use of SpO2', () => {
+    expect(OSI_MAX_SPO2_PERCENT).toBe(97);
+    expect(oxygenSaturationIndex(0.4, 12, 97)).not.toBeNull();
+    expect(oxygenSaturationIndex(0.4, 12, 97.1)).toBeNull();
+  });
+
+  it('the citation says where the limit and the bands were read', () => {
+    expect(GAS_EXCHANGE['palicc-2015']).toContain('PMC9848214');
+    expect(GAS_EXCHANGE['palicc-2015']).toContain('PMC6589490');
+    expect(GAS_EXCHANGE['palicc-2015']).not.toContain('SpO2 limit for the OSI from memory');
   });
 });
