@@ -28,8 +28,8 @@ describe('SpO2 well above the SaO2 (PN406)', () => {
   });
 });
 
-// The thresholds as read: occult hypoxaemia "defined as arterial blood oxygen saturation (SaO2) of
-// <88% despite a pulse oximetry (SpO2) reading of ≥92%", in the abstract of Valbuena VSM, Seelye S,
+// The thresholds as read: occult hypoxaemia, an arterial SaO2 below 88 % while the pulse oximeter
+// reads 92 % or more, defined so in the abstract of Valbuena VSM, Seelye S,
 // Sjoding MW and coauthors, Racial bias and reproducibility in pulse oximetry among medical and
 // surgical inpatients in general care in the Veterans Health Administration 2013–19, BMJ
 // 2022;378:e069775 (PubMed 35793817). The 2020 letter itself (SpO2 92–96 %) is still from memory.
