@@ -6,6 +6,7 @@
 // saturation to act on.
 import { describe, expect, it } from 'vitest';
 import { checkNote } from '../../server/src/core';
+import { OCCULT_SAO2_BELOW_PERCENT, OCCULT_SPO2_FROM_PERCENT, occultHypoxaemiaCheck } from '../../server/src/core/checks/occult-hypoxaemia';
 
 const found = (text: string) => checkNote(text).findings.filter((f) => f.code === 'PN406');
 
@@ -24,5 +25,23 @@ describe('SpO2 well above the SaO2 (PN406)', () => {
     expect(found('@ 08:00\nvitals spo2 92\nabg sao2 87')).toHaveLength(1);
     expect(found('@ 08:00\nvitals spo2 95\n@ 08:30\nabg sao2 85')).toEqual([]);
     expect(found('@ 08:00\nabg sao2 85')).toEqual([]);
+  });
+});
+
+// The thresholds as read: occult hypoxaemia, an arterial SaO2 below 88 % while the pulse oximeter
+// reads 92 % or more, defined so in the abstract of Valbuena VSM, Seelye S,
+// Sjoding MW and coauthors, Racial bias and reproducibility in pulse oximetry among medical and
+// surgical inpatients in general care in the Veterans Health Administration 2013–19, BMJ
+// 2022;378:e069775 (PubMed 35793817). The 2020 letter itself (SpO2 92–96 %) is still from memory.
+describe('PN406 thresholds, as read (Valbuena, Sjoding and coauthors, BMJ 2022)', () => {
+  it('are an SaO2 below 88 % with an SpO2 of 92 % or more', () => {
+    expect(OCCULT_SAO2_BELOW_PERCENT).toBe(88);
+    expect(OCCULT_SPO2_FROM_PERCENT).toBe(92);
+  });
+
+  it('its source names where they were read, and keeps the 2020 letter marked as recalled', () => {
+    expect(occultHypoxaemiaCheck.source).toContain('BMJ 2022;378:e069775');
+    expect(occultHypoxaemiaCheck.source).toContain('read in the abstract');
+    expect(occultHypoxaemiaCheck.source).toMatch(/2477–2478 \(from memory\)/);
   });
 });

@@ -3,7 +3,9 @@
 // and the acute respiratory distress syndrome. N Engl J Med 2000;342:1301–1308, from memory: male
 // 50 + 0.91 × (height cm − 152.4), female 45.5 + 0.91 × (height cm − 152.4)) was made for adults; the
 // trial enrolled adults (18 years or more, from memory), and the project's reference notes say it is not
-// valid for children. A 6-year-old of 100 cm got a PBW of 2.3 kg, a VT of 120 mL read as 51.8 mL/kg with
+// valid for children, as does the abstract of a BMC Pulm Med 2017 paper on predicted body weight from
+// pre-term to adult (doi 10.1186/s12890-017-0427-1, read there: the trial's relationship holds for adults
+// only). A 6-year-old of 100 cm got a PBW of 2.3 kg, a VT of 120 mL read as 51.8 mL/kg with
 // a lung-protective warning (PN403), and a ventilatory ratio of 13.8.
 import { describe, expect, it } from 'vitest';
 import { checkNote } from '../../server/src/core';

@@ -146,7 +146,7 @@ describe('ROX index (Roca et al., J Crit Care 2016, from memory; AJRCCM 2019, it
   });
 });
 
-describe('oxygenation and oxygen saturation indices (PALICC 2015; from memory)', () => {
+describe('oxygenation and oxygen saturation indices (PALICC 2015: its bands read as reproduced at PMC6589490, table 1; the SpO2 limit in PALICC-2, PMC9848214, table 5; the formulas from memory)', () => {
   it('OI = FiO2 × MAP × 100 / PaO2: 0.5 × 16 × 100 / 50 = 16 (severe cut-off); 0.4 × 12 × 100 / 80 = 6 (mild band 4–8)', () => {
     expect(oxygenationIndex(0.5, 16, 50)).toBeCloseTo(16, 9);
     expect(oxygenationIndex(0.4, 12, 80)).toBeCloseTo(6, 9);

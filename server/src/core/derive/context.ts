@@ -39,7 +39,9 @@ const WITH_DECIMALS: readonly ValueExtras[] = Array.from({ length: 9 }, (_, d) =
 
 /**
  * The age (years) from which rules made in adults are applied: the ARDS Network's predicted body
- * weight (its trial enrolled adults of 18 years or more: ARDS Network 2000, from memory) and the
+ * weight (its trial enrolled adults of 18 years or more: ARDS Network 2000, from memory; that its
+ * equation holds for adults only, read in the abstract of a BMC Pulm Med 2017 paper on predicted
+ * body weight from pre-term to adult, doi 10.1186/s12890-017-0427-1) and the
  * age rules for the upper normal A–a gradient (made in adults). A younger patient gets neither.
  */
 export const ADULT_FROM_YEARS = 18;
