@@ -203,12 +203,14 @@ export function unitSpellings(UNITS, twoWords = false) {
   return [...new Set(out)];
 }
 
-function deviceWords(FIELDS, highFlow = null) {
+function deviceWords(FIELDS, kind = null) {
   const device = FIELDS.find((f) => f.id === 'device');
   const oxygenKeys = new Set(keysOf(FIELDS, 'oxygen'));
   // As in the parser: a device word that is also a key of the oxygen section is read as the key.
-  // `highFlow`: only the words of a high-flow device (true), or only the others (false).
-  return Object.entries(device?.words ?? {}).filter(([w, canonical]) => !oxygenKeys.has(w) && (highFlow === null || (canonical === 'hfnc') === highFlow)).map(([w]) => w);
+  // `kind`: only the words of a high-flow device ('hfnc'), of a Venturi mask ('venturi'), or of
+  // the others ('other'); every word with none.
+  const of = (canonical) => (canonical === 'hfnc' || canonical === 'venturi' ? canonical : 'other');
+  return Object.entries(device?.words ?? {}).filter(([w, canonical]) => !oxygenKeys.has(w) && (kind === null || of(canonical) === kind)).map(([w]) => w);
 }
 
 // ── rule builders ──────────────────────────────────────────────────────────
@@ -286,6 +288,41 @@ function highFlowNumbers(units, keys, percent) {
   return [
     '(?:', numberWithPercent(percent), '(?:\\s+', notPercent, numberWithUnit(units, keys), ')?',
     '|', numberWithUnit(units, keys), '(?:\\s+', numberWithPercent(percent), ')?', ')',
+  ];
+}
+
+/** A number with its unit, which it must have (`8 L/min`, `8L/min`): a Venturi mask's second number. */
+function numberWithRequiredUnit(units, keys) {
+  return [
+    cap(numeric, NUM),
+    '(?:',
+    cap('keyword.other.unit', units.glued), VALUE_END,
+    '|', cap('keyword.other.unit.unknown', `[^\\s,#]${CHUNK_REST}`), VALUE_END,
+    '|', spacedUnit(units, keys),
+    ')',
+  ];
+}
+
+/**
+ * A bare number after `venturi` that the parser reads as its FiO2 (`venturiNumberKey`): a fraction
+ * above 0 up to 1, or one of the percentages of the Venturi settings, 24 to 60 (`VENTURI_PERCENT`
+ * in the parser; the agreement test of the grammar and the parser compares the two).
+ */
+const VENTURI_BARE_FIO2 = '\\+?(?:0*\\.[0-9]*[1-9][0-9]*|0+,[0-9]*[1-9][0-9]*|0*1(?:[.,]0+)?|0*(?:2[4-9]|[3-5][0-9])(?:[.,][0-9]+)?|0*60(?:[.,]0+)?)';
+
+/**
+ * The numbers after a Venturi mask without a key, as the parser reads them: its FiO2 and its flow,
+ * each said by its unit, in either order (`venturi 28 % 8 L/min`, `venturi 8 L/min 28 %`), a flow
+ * in L/min after a bare setting too (`venturi 28 8 L/min`), or one number. A second number of the
+ * same kind as the first, or a bare one, is not read.
+ */
+function venturiNumbers(units, keys, percent) {
+  const notPercent = `(?!${NUM}\\s*${percent}${VALUE_END})`;
+  return [
+    '(?:', numberWithPercent(percent), '(?:\\s+', notPercent, numberWithRequiredUnit(units, keys), ')?',
+    '|', cap(numeric, VENTURI_BARE_FIO2), '\\s+', notPercent, numberWithRequiredUnit(units, keys),
+    '|', `(?!${VENTURI_BARE_FIO2}${VALUE_END})`, numberWithUnit(units, keys), '\\s+', numberWithPercent(percent),
+    '|', numberWithUnit(units, keys), ')',
   ];
 }
 
@@ -580,16 +617,18 @@ export function buildGrammar({ SECTIONS, FIELDS, UNITS, BLANKS }) {
     const keys = alt(keysOf(FIELDS, section.id));
     const lead = {
       // An oxygen line starts with the device; a number right after it is its flow (or CPAP level).
-      // After `hfnc`, a percentage is its FiO2, beside its flow (`hfnc 40 L/min 60 %`).
+      // After `hfnc`, a percentage is its FiO2, beside its flow (`hfnc 40 L/min 60 %`); after
+      // `venturi`, its FiO2 and its flow, each said by its unit (`venturi 28 8 L/min`).
       oxygen: ['(?:', leadGap, '(?:',
-        cap('constant.language', alt(deviceWords(FIELDS, true))), VALUE_END, '(?:\\s+', highFlowNumbers(units, keys, percent), ')?',
-        '|', cap('constant.language', alt(deviceWords(FIELDS, false))), VALUE_END, '(?:\\s+', numberWithUnit(units, keys), ')?', '))?'],
+        cap('constant.language', alt(deviceWords(FIELDS, 'hfnc'))), VALUE_END, '(?:\\s+', highFlowNumbers(units, keys, percent), ')?',
+        '|', cap('constant.language', alt(deviceWords(FIELDS, 'venturi'))), VALUE_END, '(?:\\s+', venturiNumbers(units, keys, percent), ')?',
+        '|', cap('constant.language', alt(deviceWords(FIELDS, 'other'))), VALUE_END, '(?:\\s+', numberWithUnit(units, keys), ')?', '))?'],
       abg: shorthandLead(units, keys),
       vbg: shorthandLead(units, keys),
     }[section.id];
     const begin = assemble(LEAD, sectionWord, END, lead ?? '');
     repository[ruleName] = {
-      ...(section.id === 'oxygen' ? { comment: 'An oxygen line starts with the device; a number right after it is its flow (or CPAP level); after hfnc, a flow and a percentage, its FiO2.' } : {}),
+      ...(section.id === 'oxygen' ? { comment: 'An oxygen line starts with the device; a number right after it is its flow (or CPAP level); after hfnc, a flow and a percentage, its FiO2; after venturi, its FiO2 and its flow.' } : {}),
       ...(lead && section.id !== 'oxygen' ? { comment: 'A blood gas line may start with the shorthand pH/PCO2/PO2/HCO3 and the unit of its pressures.' } : {}),
       begin: begin.regex,
       beginCaptures: begin.captures,

@@ -18,7 +18,10 @@ describe('a key written on the wrong line', () => {
     expect(offered('vitals vt 400')).toEqual([['`vt` is not a key of vitals lines (`vt` belongs on a vent line).', []]]);
     expect(offered('vitals pco2 40')).toEqual([['`pco2` is not a key of vitals lines (`pco2` belongs on an abg or vbg line).', []]]);
     expect(offered('vitals fio2 0.4')).toEqual([['`fio2` is not a key of vitals lines (`fio2` belongs on an oxygen or vent or abg line).', []]]);
-    expect(offered('vent ipap 14')).toEqual([['`ipap` is not a key of vent lines (`ipap` belongs on an oxygen line).', []]]);
+    expect(offered('vitals ipap 14')).toEqual([['`ipap` is not a key of vitals lines (`ipap` belongs on an oxygen line).', []]]);
+    // On a vent line an `ipap` is NIV, which is written on an oxygen line: the line is offered as one
+    // (tests/core/support-on-vent-line.test.ts).
+    expect(offered('vent ipap 14')).toEqual([['`ipap` is not a key of vent lines (`ipap` belongs on an oxygen line): NIV and CPAP are written on oxygen lines in this format. Write this line as `oxygen niv ipap 14`.', ['Write as `oxygen niv ipap 14`']]]);
   });
 
   it('keeps the line\'s own name of the end-expiratory pressure (`peep` on an NIV oxygen line is `epap`)', () => {

@@ -7,8 +7,8 @@
 // the FiO2) and a number in L/min as its flow (`venturi 8 L/min`). The second of the two was two
 // stray-text errors (`28`, then `%`) with no fix; it is now read as the device's other setting, as
 // after `hfnc` (`hfnc 40 L/min 60 %`), and said by nothing, as `venturi 28 %` alone is not. Only a
-// second number whose unit says which it is is read: a bare one stays stray text, and so does a
-// flow after a bare setting (`venturi 28 8 L/min`), where PN321 asks what `28` is.
+// second number whose unit says which it is is read: a bare one stays stray text. A flow after a
+// bare setting (`venturi 28 8 L/min`) is read too, and PN321 still asks what `28` is (see below).
 import { describe, expect, it } from 'vitest';
 import { checkNote } from '../../server/src/core/check-note';
 import { formatNote } from '../../server/src/core/service';
@@ -65,6 +65,64 @@ describe('a flow and a percentage after `venturi`, each without its key', () => 
   });
 });
 
+// A flow in L/min after a bare Venturi setting (`venturi 28 8 L/min`): the setting first, as the
+// device's colour names it, then the flow the valve asks for. The flow was stray text (`8`) and an
+// unknown key (`L/min`), and the flow was lost; its unit says what it is, so it is read as the flow,
+// as after `venturi 28 %`. The bare `28` is still read as the FiO2 in % and said (PN321), but its
+// fixes no longer offer `28 L/min`, a second flow, and its fix that writes `fio2 28 %` gives the flow
+// its key too, since after a key no number is read as the device's.
+describe('a flow in L/min after the Venturi setting', () => {
+  it.each([
+    ['oxygen venturi 28 8 L/min', ['PN321']],
+    ['oxygen venturi 28 8L/min', ['PN321']],
+    ['oxygen venturi 28 % 8 L/min', []],
+    ['oxygen venturi 0.28 8 L/min', []],
+  ])('`%s`: the flow and the FiO2 are both read', (line, codes) => {
+    const text = note(line);
+    expect(codesOn(text, 2)).toEqual(codes);
+    expect(valuesOf(text).numberOf('o2_flow')).toBe(8);
+    expect(valuesOf(text).numberOf('fio2')).toBeCloseTo(0.28, 10);
+    // P/F = PaO2 ÷ FiO2 = 80 ÷ 0.28 = 285.7 (Horowitz index; ARDS Definition Task Force, Ranieri VM
+    // et al., "Acute respiratory distress syndrome: the Berlin Definition", JAMA 2012;307:2526–2533).
+    expect(derived(text, 'pf_ratio').value).toBeCloseTo(285.714, 2);
+  });
+
+  it('PN321 on the bare setting says what it is read as, and offers no second flow', () => {
+    const text = note('oxygen venturi 28 8 L/min');
+    const [found] = onLine(text, 2);
+    expect(found!.message).toBe('`28` after `venturi` is read as the FiO2 it gives, 28 % (a Venturi mask is set by its oxygen fraction, 24–60 %), not as a flow: the flow is the `8 L/min` after it. Write `fio2 28 %` to say so.');
+    expect(found!.fixes.map((f) => f.title)).toEqual(['Write `fio2 28 %`']);
+  });
+
+  it('its fix writes a clean line that keeps the flow', () => {
+    const text = note('oxygen venturi 28 8 L/min # valve');
+    const [found] = onLine(text, 2);
+    const fixed = applyEdits(text, found!.fixes[0]!.edits);
+    expect(fixed.split('\n')[2]).toBe('oxygen venturi fio2 28 % flow 8 L/min # valve');
+    expect(codesOn(fixed, 2)).toEqual([]);
+    expect(valuesOf(fixed).numberOf('o2_flow')).toBe(8);
+    expect(valuesOf(fixed).numberOf('fio2')).toBeCloseTo(0.28, 10);
+  });
+
+  it('with a `fio2` of its own: nothing where they agree; where they disagree PN206 keeps either, and the flow', () => {
+    expect(codesOn(note('oxygen venturi 28 8 L/min, fio2 0.28'), 2)).toEqual([]);
+    const text = note('oxygen venturi 28 8 L/min, fio2 0.35');
+    const found = onLine(text, 2);
+    expect(found.map((f) => f.code)).toEqual(['PN206']);
+    const keepFio2 = applyEdits(text, found[0]!.fixes[0]!.edits);
+    expect(keepFio2.split('\n')[2]).toBe('oxygen venturi 8 L/min, fio2 0.35');
+    expect(codesOn(keepFio2, 2)).toEqual([]);
+    const keepSetting = applyEdits(text, found[0]!.fixes[1]!.edits);
+    expect(keepSetting.split('\n')[2]).toBe('oxygen venturi fio2 28 % flow 8 L/min');
+    expect(codesOn(keepSetting, 2)).toEqual([]);
+    expect(valuesOf(keepSetting).numberOf('o2_flow')).toBe(8);
+  });
+
+  it('the formatter keeps the line as written', () => {
+    expect(formatNote('@ day 1 08:00\noxygen venturi 28 8 L/min').split('\n')[1]).toMatch(/^oxygen +venturi 28 8 L\/min$/);
+  });
+});
+
 describe('what stays unread', () => {
   it('a bare second number: stray text, as before', () => {
     const text = note('oxygen venturi 8 L/min 28');
@@ -73,8 +131,10 @@ describe('what stays unread', () => {
     expect(valuesOf(text).numberOf('o2_flow')).toBe(8);
   });
 
-  it('a flow after a bare setting: PN321 asks what the setting is, and the flow stays stray text', () => {
-    expect(codesOn(note('oxygen venturi 28 8 L/min'), 2)).toEqual(['PN321', 'PN105', 'PN201']);
+  it('a bare number after a bare setting: PN321 asks what the setting is, and the second number stays stray text', () => {
+    const text = note('oxygen venturi 28 8');
+    expect(codesOn(text, 2)).toEqual(['PN321', 'PN105']);
+    expect(valuesOf(text).numberOf('o2_flow')).toBeNull();
   });
 
   it('after a comma, one stray-text error with the fix that writes `fio2`, as after any device', () => {

@@ -137,6 +137,22 @@ describe('grammar and parser agree', () => {
     expect(await check(sources)).toEqual([]);
   });
 
+  it('on the numbers after `venturi`: its FiO2 and its flow, each said by its unit, in either order', async () => {
+    // The parser reads the number after `venturi` as its FiO2 where it is a percentage, a fraction
+    // above 0 up to 1 or a bare Venturi setting (24–60), else as its flow; a second number only
+    // where its unit says it is the other setting (tests/core/venturi-flow-and-setting.test.ts).
+    const lines = [
+      'oxygen venturi 28 8 L/min', 'oxygen venturi 28 8L/min', 'oxygen venturi 28 % 8 L/min', 'oxygen venturi 0.28 8 L/min',
+      'oxygen venturi 8 L/min 28 %', 'oxygen venturi 8 28 %', 'oxygen venturi 8 L/min 28%', 'oxygen venturi 28 8',
+      'oxygen venturi 8 L/min 28', 'oxygen venturi 28 28 %', 'oxygen venturi 0.4 8 %', 'oxygen venturi 28 % 35 %',
+      'oxygen venturi 8 L/min 10 L/min', 'oxygen venturi 61 8 L/min', 'oxygen venturi 23 8 L/min', 'oxygen venturi 60 8 L/min',
+      'oxygen venturi 60.5 8 L/min', 'oxygen venturi 24.5 8 L/min', 'oxygen venturi 1 8 L/min', 'oxygen venturi 1.01 8 L/min',
+      'oxygen venturi 0 8 L/min', 'oxygen venturi 0,5 8 L/min', 'oxygen venturi 28 8 cmH2O', 'oxygen venturi 28 8 xyz',
+      'oxygen venturi 28 fio2 0.28', 'oxygen venturi 28 8 L/min, fio2 0.28', 'oxygen venturi 28, 8 L/min', 'oxygen venturi 40 %, fio2 0.4',
+    ];
+    expect(await check([lines.join('\n')])).toEqual([]);
+  });
+
   it('on generated messy lines', async () => {
     const lines = fc.sample(messyLine, { numRuns: 1500, seed: 20250101 });
     expect(await check([lines.join('\n')])).toEqual([]);

@@ -18,6 +18,7 @@ import { doubtBoundsAt, softBoundsAt, unitsWithin, within, type BoundsContext } 
 import type { StatedValue } from './model';
 import { givesNoSetPressure, givesPressure, supportOfDevice, SUPPORT_PRESSURE_FIELDS } from './noninvasive-support';
 import type { ReadIssue } from './read-issues';
+import { isSupportItem, isSupportKeyOnVentLine, supportLineMove } from './support-on-vent-line';
 
 export interface ReadContext extends BoundsContext {
   readonly gasUnit: 'mmHg' | 'kPa';
@@ -366,13 +367,52 @@ function unknownKeyIssue(item: ItemNode, section: SectionId, line: number, lineI
   const lines = [...new Set(elsewhere)];
   const where = lines.length > 0 ? ` (\`${key.text}\` belongs on ${/^[aeiou]/.test(lines[0]!) ? 'an' : 'a'} ${lines.join(' or ')} line)` : '';
   const hint = near.length > 0 ? ` Did you mean ${near.map((k) => `\`${k}\``).join(' or ')}?` : '';
+  // With a reading set aside the word was as near a key of another kind: never a fix applied unasked.
+  const fixes = near.map((k) => ({ title: `Change to \`${k}\``, edits: renameKeepingColumns(lineText, key.span, k), preferred: near.length === 1 && !keys.setAside && safeKeyFix(key.text.toLowerCase(), k.toLowerCase()) }));
+  if (section === 'vent' && isSupportKeyOnVentLine(key.text)) {
+    const moved = supportOnVentIssue(item, line, lineItems, lineText, where, hint, renamed, fixes);
+    if (moved !== null) return moved;
+  }
   return {
     check: 'unknown-key',
     line,
     span: key.span,
     message: `\`${key.text}\` is ${devices.length > 0 ? 'neither a device nor a key' : 'not a key'} of ${section} lines${where}.${hint}`,
-    // With a reading set aside the word was as near a key of another kind: never a fix applied unasked.
-    fixes: near.map((k) => ({ title: `Change to \`${k}\``, edits: renameKeepingColumns(lineText, key.span, k), preferred: near.length === 1 && !keys.setAside && safeKeyFix(key.text.toLowerCase(), k.toLowerCase()) })),
+    fixes,
+  };
+}
+
+/**
+ * A pressure of NIV or CPAP (`ipap`, `epap`, `level`) or a device word (`niv`, `cpap 8`) on a vent
+ * line (`supportLineMove`): where the line is plainly NIV or CPAP, the finding says that they are
+ * written on oxygen lines and offers that line, preferred, and `peep` (for `epap` or `cpap`) only
+ * where it alone leaves a clean vent line (the line holds no other pressure of the support, and does
+ * not name NIV). Where the line names NIV but holds keys an oxygen line does not take, it says why
+ * it is not moved, with the offers as before. Null where neither applies (today's finding).
+ */
+function supportOnVentIssue(item: ItemNode, line: number, lineItems: readonly ItemNode[], lineText: string, where: string, hint: string, renamed: string | null, fixes: readonly LineFix[]): ReadIssue | null {
+  const move = supportLineMove(lineItems, lineText);
+  if (move === null) return null;
+  const key = item.key!;
+  const base = `\`${key.text}\` is not a key of vent lines${where}`;
+  if (move.kind === 'kept') {
+    if (!move.named) return null;
+    return {
+      check: 'unknown-key',
+      line,
+      span: key.span,
+      message: `${base}. NIV and CPAP are written on oxygen lines in this format, but this line also holds ${wordList(move.blockers.map((b) => `\`${b}\``))}, which an oxygen line does not take, so no fix moves it: write the NIV on an oxygen line (a vent line of readings beside it keeps what the device measured), or a ventilator's mode with the keys of a vent line (\`peep\`, \`ps\`).${hint}`,
+      fixes,
+    };
+  }
+  const peepToo = renamed !== null && lineItems.every((other) => other === item || !isSupportItem(other));
+  return {
+    check: 'unknown-key',
+    line,
+    span: key.span,
+    message: `${base}: NIV and CPAP are written on oxygen lines in this format. Write this line as \`${move.shown}\`${peepToo ? `, or \`${renamed}\` for a ventilator's PEEP` : ''}.`,
+    // The renamed key is offered after the move, never applied unasked.
+    fixes: [{ title: `Write as \`${move.shown}\``, edits: [move.edit], preferred: true }, ...(peepToo ? fixes.map((f) => ({ ...f, preferred: false })) : [])],
   };
 }
 

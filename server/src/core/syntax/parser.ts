@@ -1611,17 +1611,25 @@ function venturiNumberKey(number: number, unit: Located | null): 'fio2' | 'flow'
 
 /**
  * A bare number of a Venturi setting after `venturi` (`venturi 28`), read as the FiO2 in %: said
- * (information), with fixes that write which was meant, the FiO2 read or a flow in L/min.
+ * (information), with fixes that write which was meant, the FiO2 read or a flow in L/min. Where a
+ * flow follows it without a key (`flowAfter`: `venturi 28 8 L/min`), the number is not that flow:
+ * no flow is offered (it would be a second one), and the fix that writes `fio2` gives the flow its
+ * key too, since after a key no number is read as the device's (as `highFlowPercentIssue` does).
  */
-function venturiSettingIssue(device: string, number: string, start: number, end: number): SyntaxIssue {
+function venturiSettingIssue(device: string, source: string, start: number, end: number, flowAfter: Item | null): SyntaxIssue {
+  const number = source.slice(start, end);
+  const edits = [{ span: { start, end: start }, newText: 'fio2 ' }, { span: { start: end, end }, newText: ' %' }];
+  if (flowAfter !== null) edits.push({ span: { start: flowAfter.span.start, end: flowAfter.span.start }, newText: 'flow ' });
+  const fixes: LineFix[] = [{ title: `Write \`fio2 ${number} %\``, edits }];
+  if (flowAfter === null) fixes.push({ title: `Write \`${number} L/min\``, edits: [{ span: { start: end, end }, newText: ' L/min' }] });
+  const setting = `${number} % (a Venturi mask is set by its oxygen fraction, ${VENTURI_PERCENT.min}–${VENTURI_PERCENT.max} %)`;
   return {
     check: 'venturi-setting',
     span: { start, end },
-    message: `\`${number}\` after \`${device}\` is read as the FiO2 it gives, ${number} % (a Venturi mask is set by its oxygen fraction, ${VENTURI_PERCENT.min}–${VENTURI_PERCENT.max} %), not as a flow of ${number} L/min. Write \`fio2 ${number} %\` to say so, or \`${number} L/min\` for a flow.`,
-    fixes: [
-      { title: `Write \`fio2 ${number} %\``, edits: [{ span: { start, end: start }, newText: 'fio2 ' }, { span: { start: end, end }, newText: ' %' }] },
-      { title: `Write \`${number} L/min\``, edits: [{ span: { start: end, end }, newText: ' L/min' }] },
-    ],
+    message: flowAfter === null
+      ? `\`${number}\` after \`${device}\` is read as the FiO2 it gives, ${setting}, not as a flow of ${number} L/min. Write \`fio2 ${number} %\` to say so, or \`${number} L/min\` for a flow.`
+      : `\`${number}\` after \`${device}\` is read as the FiO2 it gives, ${setting}, not as a flow: the flow is the \`${source.slice(flowAfter.span.start, flowAfter.span.end)}\` after it. Write \`fio2 ${number} %\` to say so.`,
+    fixes,
   };
 }
 
@@ -1774,14 +1782,17 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
           const highFlow = deviceWord !== 'cpap' && deviceWord !== 'venturi' && isHighFlowDevice(section, dev.text);
           const percent = highFlow && isPercent(unit);
           const keyName = deviceWord === 'cpap' ? 'level' : deviceWord === 'venturi' ? venturiNumberKey(number, unit) : percent ? 'fio2' : 'flow';
-          if (keyName === 'fio2' && unit === null && number > 1) issues.push(venturiSettingIssue(dev.text, source.slice(next.start, next.start + length), next.start, next.start + length));
           items[count++] = numberItem(null, keyName, 'device-flow', fieldFor(section, keyName) ?? null, source, number, next.start + length, comma, unit, next.start);
           if (!highFlow && deviceWord !== 'venturi') afterDeviceNumber = i;
-          if (deviceWord === 'venturi' && !(keyName === 'fio2' && unit === null && number > 1)) {
-            // `venturi 8 L/min 28 %`, `venturi 28 % 8 L/min`: a Venturi mask is set by the FiO2 it
-            // gives and the flow its valve asks for, so a second number whose unit says it is the
-            // other setting is read as it, each without its key (as after `hfnc`). Not after a bare
-            // setting (`venturi 28`), which PN321 asks about, nor a bare second number.
+          // A bare number of a Venturi setting (`venturi 28`), read as the FiO2 in % and said (PN321)
+          // once what follows it is known: a flow after it (`venturi 28 8 L/min`) changes its fixes.
+          const bareSetting = keyName === 'fio2' && unit === null && number > 1;
+          let flowAfter: Item | null = null;
+          if (deviceWord === 'venturi') {
+            // `venturi 8 L/min 28 %`, `venturi 28 % 8 L/min`, `venturi 28 8 L/min`: a Venturi mask is
+            // set by the FiO2 it gives and the flow its valve asks for, so a second number whose unit
+            // says it is the other setting is read as it, each without its key (as after `hfnc`).
+            // Not a bare second number (`venturi 8 L/min 28`, `venturi 28 8`).
             const second = chunks[i];
             const secondLength = second && !second.afterComma ? numberChunk(second) : 0;
             if (secondLength > 0) {
@@ -1791,10 +1802,13 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
               if (secondUnit !== null && isPercent(secondUnit) !== (keyName === 'fio2')) {
                 i += 1 + UNIT_CHUNKS;
                 const secondKey = keyName === 'fio2' ? 'flow' : 'fio2';
-                items[count++] = numberItem(null, secondKey, 'device-flow', fieldFor(section, secondKey) ?? null, source, secondNumber, second!.start + secondLength, secondComma, secondUnit, second!.start);
+                const other = numberItem(null, secondKey, 'device-flow', fieldFor(section, secondKey) ?? null, source, secondNumber, second!.start + secondLength, secondComma, secondUnit, second!.start);
+                items[count++] = other;
+                if (secondKey === 'flow') flowAfter = other;
               }
             }
           }
+          if (bareSetting) issues.push(venturiSettingIssue(dev.text, source, next.start, next.start + length, flowAfter));
           if (highFlow) {
             // `hfnc 40 L/min 60 %`, `hfnc 60 % 40 L/min`: a flow and a percentage, each without its key.
             const second = chunks[i];
