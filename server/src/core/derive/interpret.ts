@@ -288,7 +288,9 @@ function hypoxaemiaText(g: GasFacts): string {
   const pao2 = g.pao2!.value;
   const hypoxaemiaAt = g.settings.hypoxaemiaBelowMmhg;
   const grade = sideOf(pao2, SEVERE_HYPOXAEMIA_MMHG, g.o2Resolution) < 0 ? 'severe' : 'moderate';
-  return `PaO2 ${pao2Shown(g, hypoxaemiaAt, SEVERE_HYPOXAEMIA_MMHG)}: consistent with ${grade} hypoxaemia (below ${gas.threshold(hypoxaemiaAt, pao2)}${grade === 'severe' ? `, and below ${gas.threshold(SEVERE_HYPOXAEMIA_MMHG, pao2)}` : ''})${g.onOxygen ? ` despite ${fio2Words(fio2!)}` : ''}.`;
+  // On oxygen whose FiO2 is not stated (a cannula, a mask), the device is named, as the hypercapnic reading names it.
+  const despite = g.onOxygen ? ` despite ${fio2Words(fio2!)}` : g.oxygenDevice !== null ? ` despite oxygen by ${g.oxygenDevice}, FiO2 not stated` : '';
+  return `PaO2 ${pao2Shown(g, hypoxaemiaAt, SEVERE_HYPOXAEMIA_MMHG)}: consistent with ${grade} hypoxaemia (below ${gas.threshold(hypoxaemiaAt, pao2)}${grade === 'severe' ? `, and below ${gas.threshold(SEVERE_HYPOXAEMIA_MMHG, pao2)}` : ''})${despite}.`;
 }
 
 function supportedOxygenationText(g: GasFacts): string {
