@@ -235,6 +235,16 @@ function readOxygenation(g: GasFacts, out: Interpretation[]): void {
   const adjusted = c.derivedValue('pf_ratio_altitude_adjusted');
   const pfForBand = adjusted ?? pf;
   if (!pfForBand || !peep || peep.value < BERLIN_MIN_PEEP_CMH2O) return;
+  // A child on invasive ventilation: the Berlin bands were made in adults, and the pediatric
+  // consensus (PALICC 2015) grades a ventilated child's oxygenation by the oxygenation index
+  // instead. Under the adult age Pneumark uses elsewhere (our convention: PALICC names none), the
+  // P/F is not read against the bands, and the reading says why. Noninvasive support is read as before.
+  const age = peep.fieldId === 'peep' ? c.field('age', 'age') : null;
+  if (age !== null && pf !== null && isUnderAdultAge(age.value)) {
+    g.peep = peep;
+    out.push(new Reading('oxygenation-band', BASIS_CHILD_BAND, g, false, `P/F ${g.gas.kpa ? `${kpaNumber(pf.value)} kPa (${formatShort(pf.value, 0)} mmHg)` : `${formatShort(pf.value, 0)} mmHg`} with ${peep.name} ${formatShort(peep.value)} cmH2O at age ${formatShort(age.value)} y: ${CHILD_BAND_WORDS}`));
+    return;
+  }
   // The altitude adjustment scales the resolution as it scales the P/F.
   const resolution = pf && pf.value > 0 ? (pfResolution * pfForBand.value) / pf.value : 0;
   const onBoundary = boundaryOn(pfForBand.value, resolution);
@@ -247,6 +257,10 @@ function readOxygenation(g: GasFacts, out: Interpretation[]): void {
   g.noninvasive = peep.fieldId !== 'peep';
   out.push(new Reading('oxygenation-band', [adjusted ? 'pf_ratio_altitude_adjusted' : 'pf_ratio', peep.fieldId ?? 'peep'], g, true, berlinBandText));
 }
+
+const BASIS_CHILD_BAND: readonly string[] = ['pf_ratio', 'peep', 'age'];
+/** What the band reading says of a child on invasive ventilation, after its numbers (Khemani RG et al, PALICC, Pediatr Crit Care Med 2015;16(5 Suppl 1):S23–S40). */
+const CHILD_BAND_WORDS = 'not read against the oxygenation bands of the Berlin definition, which were made in adults; the pediatric consensus (PALICC 2015) grades the oxygenation of a ventilated child by the oxygenation index instead.';
 
 /** The Berlin boundary (mmHg) a P/F read at `resolution` is on, if any (none when read exactly). */
 function boundaryOn(pf: number, resolution: number): number | undefined {
