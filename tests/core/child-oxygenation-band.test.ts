@@ -34,6 +34,11 @@ describe('a child on invasive ventilation is not read against the adult Berlin o
     expect(readings(vented('age 8 mo'))['oxygenation-band']).toMatch(/^P\/F 150 mmHg with PEEP 8 cmH2O at age 0\.67 y: not read against/);
   });
 
+  it('names the FiO2 and PEEP carried from an earlier line, as the band reading does', () => {
+    const text = `${vented('age 4 y')}\n@ 09:00\nabg 7.34/46/84/24.3`;
+    expect(readings(text)['oxygenation-band']).toBe('P/F 140 mmHg with PEEP 8 cmH2O (FiO2 and PEEP carried from line 3) at age 4 y: not read against the oxygenation bands of the Berlin definition, which were made in adults; the pediatric consensus (PALICC 2015) grades the oxygenation of a ventilated child by the oxygenation index instead.');
+  });
+
   it('from 18 years, and without an age, the Berlin band is read as before', () => {
     const adult = 'P/F 150 mmHg with PEEP 8 cmH2O: consistent with the 100–200 mmHg oxygenation band of the Berlin definition (the band called moderate there) — an oxygenation band, not a diagnosis.';
     expect(readings(vented('age 18 y, sex male'))['oxygenation-band']).toBe(adult);

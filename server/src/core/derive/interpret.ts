@@ -242,7 +242,7 @@ function readOxygenation(g: GasFacts, out: Interpretation[]): void {
   const age = peep.fieldId === 'peep' ? c.field('age', 'age') : null;
   if (age !== null && pf !== null && isUnderAdultAge(age.value)) {
     g.peep = peep;
-    out.push(new Reading('oxygenation-band', BASIS_CHILD_BAND, g, false, `P/F ${g.gas.kpa ? `${kpaNumber(pf.value)} kPa (${formatShort(pf.value, 0)} mmHg)` : `${formatShort(pf.value, 0)} mmHg`} with ${peep.name} ${formatShort(peep.value)} cmH2O at age ${formatShort(age.value)} y: ${CHILD_BAND_WORDS}`));
+    out.push(new Reading('oxygenation-band', BASIS_CHILD_BAND, g, false, `P/F ${g.gas.kpa ? `${kpaNumber(pf.value)} kPa (${formatShort(pf.value, 0)} mmHg)` : `${formatShort(pf.value, 0)} mmHg`} with ${peep.name} ${formatShort(peep.value)} cmH2O${carriedOf(g.fio2, peep)} at age ${formatShort(age.value)} y: ${CHILD_BAND_WORDS}`));
     return;
   }
   // The altitude adjustment scales the resolution as it scales the P/F.
@@ -514,6 +514,12 @@ function carriedWords(first: Term | null, second: Term | null = null): string {
   // each name once (as `wordList` names two).
   if (carriedLine(a) !== carriedLine(b)) return `${a.name} ${carriedFrom(a)}; ${b.name} ${carriedFrom(b)}`;
   return `${a.name === b.name ? a.name : `${a.name} and ${b.name}`} ${carriedFrom(a)}`;
+}
+
+/** ` (FiO2 carried from line 3)` where a setting the reading rests on was stated earlier; '' otherwise. */
+function carriedOf(first: Term | null, second: Term | null): string {
+  const carried = carriedWords(first, second);
+  return carried ? ` (${carried})` : '';
 }
 
 function carriedLine(t: Term): number {
