@@ -235,6 +235,16 @@ function readOxygenation(g: GasFacts, out: Interpretation[]): void {
   const adjusted = c.derivedValue('pf_ratio_altitude_adjusted');
   const pfForBand = adjusted ?? pf;
   if (!pfForBand || !peep || peep.value < BERLIN_MIN_PEEP_CMH2O) return;
+  // A child on invasive ventilation: the Berlin bands were made in adults, and the pediatric
+  // consensus (PALICC 2015) grades a ventilated child's oxygenation by the oxygenation index
+  // instead. Under the adult age Pneumark uses elsewhere (our convention: PALICC names none), the
+  // P/F is not read against the bands, and the reading says why. Noninvasive support is read as before.
+  const age = peep.fieldId === 'peep' ? c.field('age', 'age') : null;
+  if (age !== null && pf !== null && isUnderAdultAge(age.value)) {
+    g.peep = peep;
+    out.push(new Reading('oxygenation-band', BASIS_CHILD_BAND, g, false, `P/F ${g.gas.kpa ? `${kpaNumber(pf.value)} kPa (${formatShort(pf.value, 0)} mmHg)` : `${formatShort(pf.value, 0)} mmHg`} with ${peep.name} ${formatShort(peep.value)} cmH2O${carriedOf(g.fio2, peep)} at age ${formatShort(age.value)} y: ${CHILD_BAND_WORDS}`));
+    return;
+  }
   // The altitude adjustment scales the resolution as it scales the P/F.
   const resolution = pf && pf.value > 0 ? (pfResolution * pfForBand.value) / pf.value : 0;
   const onBoundary = boundaryOn(pfForBand.value, resolution);
@@ -247,6 +257,10 @@ function readOxygenation(g: GasFacts, out: Interpretation[]): void {
   g.noninvasive = peep.fieldId !== 'peep';
   out.push(new Reading('oxygenation-band', [adjusted ? 'pf_ratio_altitude_adjusted' : 'pf_ratio', peep.fieldId ?? 'peep'], g, true, berlinBandText));
 }
+
+const BASIS_CHILD_BAND: readonly string[] = ['pf_ratio', 'peep', 'age'];
+/** What the band reading says of a child on invasive ventilation, after its numbers (Khemani RG et al, PALICC, Pediatr Crit Care Med 2015;16(5 Suppl 1):S23–S40). */
+const CHILD_BAND_WORDS = 'not read against the oxygenation bands of the Berlin definition, which were made in adults; the pediatric consensus (PALICC 2015) grades the oxygenation of a ventilated child by the oxygenation index instead.';
 
 /** The Berlin boundary (mmHg) a P/F read at `resolution` is on, if any (none when read exactly). */
 function boundaryOn(pf: number, resolution: number): number | undefined {
@@ -288,7 +302,9 @@ function hypoxaemiaText(g: GasFacts): string {
   const pao2 = g.pao2!.value;
   const hypoxaemiaAt = g.settings.hypoxaemiaBelowMmhg;
   const grade = sideOf(pao2, SEVERE_HYPOXAEMIA_MMHG, g.o2Resolution) < 0 ? 'severe' : 'moderate';
-  return `PaO2 ${pao2Shown(g, hypoxaemiaAt, SEVERE_HYPOXAEMIA_MMHG)}: consistent with ${grade} hypoxaemia (below ${gas.threshold(hypoxaemiaAt, pao2)}${grade === 'severe' ? `, and below ${gas.threshold(SEVERE_HYPOXAEMIA_MMHG, pao2)}` : ''})${g.onOxygen ? ` despite ${fio2Words(fio2!)}` : ''}.`;
+  // On oxygen whose FiO2 is not stated (a cannula, a mask), the device is named, as the hypercapnic reading names it.
+  const despite = g.onOxygen ? ` despite ${fio2Words(fio2!)}` : g.oxygenDevice !== null ? ` despite oxygen by ${g.oxygenDevice}, FiO2 not stated` : '';
+  return `PaO2 ${pao2Shown(g, hypoxaemiaAt, SEVERE_HYPOXAEMIA_MMHG)}: consistent with ${grade} hypoxaemia (below ${gas.threshold(hypoxaemiaAt, pao2)}${grade === 'severe' ? `, and below ${gas.threshold(SEVERE_HYPOXAEMIA_MMHG, pao2)}` : ''})${despite}.`;
 }
 
 function supportedOxygenationText(g: GasFacts): string {
@@ -498,6 +514,12 @@ function carriedWords(first: Term | null, second: Term | null = null): string {
   // each name once (as `wordList` names two).
   if (carriedLine(a) !== carriedLine(b)) return `${a.name} ${carriedFrom(a)}; ${b.name} ${carriedFrom(b)}`;
   return `${a.name === b.name ? a.name : `${a.name} and ${b.name}`} ${carriedFrom(a)}`;
+}
+
+/** ` (FiO2 carried from line 3)` where a setting the reading rests on was stated earlier; '' otherwise. */
+function carriedOf(first: Term | null, second: Term | null): string {
+  const carried = carriedWords(first, second);
+  return carried ? ` (${carried})` : '';
 }
 
 function carriedLine(t: Term): number {
