@@ -426,12 +426,24 @@ const TRAILING_SLASH = 'is a file, not a folder (leave out the last /)';
 function pathProblem(abs: string, error: unknown): string {
   const code = errorCode(error);
   if (code === 'ENOENT' && abs.includes('\uFFFD') && undecodableName(abs)) return NAME_NOT_UTF8;
-  if (code === 'ENOENT') return isLink(abs) ? `a symbolic link to something that does not exist (${linkTarget(abs)})` : 'no such file or folder';
+  if (code === 'ENOENT') return isLink(abs) ? `${LINK_TO_NOTHING} (${linkTarget(abs)})` : 'no such file or folder';
   if (code === 'ELOOP') return 'a loop of symbolic links';
   if (code === 'EACCES' || code === 'EPERM') return 'permission denied (a folder on the way to it cannot be searched)';
   if (code === 'ENOTDIR') return 'a part of the path is not a folder';
   if (code === 'ENAMETOOLONG') return 'the path is too long';
   return `cannot be read (${code ?? 'unknown error'})`;
+}
+
+/** Why a path cannot be read when it is a symbolic link to nothing; the link's target follows in brackets. */
+const LINK_TO_NOTHING = 'a symbolic link to something that does not exist';
+
+/**
+ * A problem as `check --redact` writes it: the one problem that quotes a path (the target of a
+ * symbolic link to nothing, which may name a patient as a file name can) with the path replaced by
+ * `replacement`; the others are Pneumark's own words and stay.
+ */
+export function redactedProblem(problem: string, replacement: string): string {
+  return problem.startsWith(`${LINK_TO_NOTHING} (`) ? `${LINK_TO_NOTHING} (${replacement})` : problem;
 }
 
 /** A file whose name is not UTF-8: listed (with U+FFFD for each bad byte), but not to be opened by that name. */
