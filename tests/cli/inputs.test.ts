@@ -79,7 +79,7 @@ describe('inputs that hold no note', () => {
     writeFileSync(join(dir, '.pneuignore'), 'one.pneu\n');
     const ignored = io(dir);
     expect(await run(['check', 'one.pneu'], ignored)).toBe(2);
-    expect(ignored.err()).toBe('pneumark: one.pneu: excluded by .pneuignore; no note left to read\n');
+    expect(ignored.err()).toBe('pneumark: one.pneu: excluded by .pneuignore (line 1: one.pneu); no note left to read\n');
     const pattern = io(dir);
     expect(await run(['export', 'o*.pneu', '--format', 'jsonl'], pattern)).toBe(2);
     expect(pattern.err()).toBe('pneumark: o*.pneu: no note left to read: the file this pattern matches is excluded by .pneuignore\n');
@@ -335,7 +335,7 @@ describe('.pneuignore files in the folders scanned', () => {
     // A file named on the command line is left out as the working folder's .pneuignore leaves it out.
     const named = io(dir);
     expect(await run(['check', 'data/ward-a/draft.pneu'], named)).toBe(2);
-    expect(named.err()).toBe('pneumark: data/ward-a/draft.pneu: excluded by .pneuignore; no note left to read\n');
+    expect(named.err()).toBe('pneumark: data/ward-a/draft.pneu: excluded by data/ward-a/.pneuignore (line 1: draft.pneu); no note left to read\n');
   });
 
   it('take back with a negation what a file above left out, unless its folder is left out', async () => {

@@ -260,18 +260,23 @@ describe('--stdin-name naming an excluded path', () => {
   const cwd = (dir: string) => join(dir, 'proj');
 
   const ignored: [string, string[], RegExp][] = [
-    ['.pneuignore', ['-', '--stdin-name', 'ward/skip.pneu'], /^pneumark: the note on standard input was not (checked|exported|formatted): ward\/skip\.pneu is excluded by \.pneuignore$/],
-    ['.pneuignore, a folder', ['-', '--stdin-name', 'drafts/new.pneu'], /^pneumark: the note on standard input was not (checked|exported|formatted): drafts\/new\.pneu is excluded by \.pneuignore$/],
+    ['.pneuignore', ['-', '--stdin-name', 'ward/skip.pneu'], /^pneumark: the note on standard input was not (checked|exported|formatted): ward\/skip\.pneu is excluded by \.pneuignore \(line 1: ward\/skip\.pneu\)$/],
+    ['.pneuignore, a folder', ['-', '--stdin-name', 'drafts/new.pneu'], /^pneumark: the note on standard input was not (checked|exported|formatted): drafts\/new\.pneu is excluded by \.pneuignore \(line 2: drafts\/\)$/],
     ['--exclude PATTERN', ['-', '--stdin-name', 'ward/a.pneu', '--exclude', 'x.pneu', '--exclude', 'ward/*.pneu'], /^pneumark: the note on standard input was not (checked|exported|formatted): ward\/a\.pneu is excluded by --exclude ward\/\*\.pneu$/],
     ['--exclude ./PATH', ['-', '--stdin-name', 'ward/a.pneu', '--exclude', './ward'], /^pneumark: the note on standard input was not (checked|exported|formatted): ward\/a\.pneu is excluded by --exclude \.\/ward$/],
+    // An absolute path excludes whether or not it exists: a buffer piped in is often not saved yet.
+    ['--exclude /ABSOLUTE/PATH of no file', ['-', '--stdin-name', 'ward/new.pneu', '--exclude', '<DIR>/proj/ward/new.pneu'], /^pneumark: the note on standard input was not (checked|exported|formatted): ward\/new\.pneu is excluded by --exclude \/.*\/proj\/ward\/new\.pneu$/],
+    ['--exclude /ABSOLUTE/FOLDER of no folder', ['-', '--stdin-name', 'unsaved/new.pneu', '--exclude', '<DIR>/proj/unsaved'], /^pneumark: the note on standard input was not (checked|exported|formatted): unsaved\/new\.pneu is excluded by --exclude \/.*\/proj\/unsaved$/],
   ];
 
-  for (const [what, args, message] of ignored) {
+  for (const [what, typed, message] of ignored) {
+    /** The arguments, with `<DIR>` the project's folder (made afresh for each test). */
+    const withDir = (dir: string) => typed.map((a) => a.replace('<DIR>', dir));
     it(`check, every format: an empty run, exit 0, one line on stderr (${what})`, async () => {
       const dir = excluding();
       const empty = { json: '', sarif: '', text: '' };
       for (const format of ['text', 'json', 'sarif'] as const) {
-        const r = await cli(['check', '--format', format, ...args], cwd(dir), BROKEN);
+        const r = await cli(['check', '--format', format, ...withDir(dir)], cwd(dir), BROKEN);
         expect(r.code, format).toBe(0);
         expect(r.err.trimEnd(), format).toMatch(message);
         expect(r.err.split('\n'), format).toHaveLength(2);
@@ -294,7 +299,7 @@ describe('--stdin-name naming an excluded path', () => {
     it(`export, every format: what no note gives, exit 0, one line on stderr (${what})`, async () => {
       const dir = excluding();
       for (const format of ['csv', 'jsonl', 'fhir']) {
-        const r = await cli(['export', '--format', format, ...args], cwd(dir), BROKEN);
+        const r = await cli(['export', '--format', format, ...withDir(dir)], cwd(dir), BROKEN);
         expect(r.code, format).toBe(0);
         expect(r.err.trimEnd(), format).toMatch(message);
         expect(r.err, format).toContain('exported');
@@ -312,13 +317,13 @@ describe('--stdin-name naming an excluded path', () => {
       const messy = '@  day 1   08:00\r\nvitals   hr 80,spo2 91\r\n\r\n\r\n';
       expect((await cli(['fmt', '-'], cwd(dir), messy)).out).not.toBe(messy);
       for (const text of [messy, `\uFEFF${messy}`, '']) {
-        const r = await cli(['fmt', ...args], cwd(dir), text);
+        const r = await cli(['fmt', ...withDir(dir)], cwd(dir), text);
         expect(r.code).toBe(0);
         expect(r.out).toBe(text);
         expect(r.err.trimEnd()).toMatch(message);
         expect(r.err).toContain('formatted');
       }
-      const checked = await cli(['fmt', '--check', ...args], cwd(dir), messy);
+      const checked = await cli(['fmt', '--check', ...withDir(dir)], cwd(dir), messy);
       expect(checked.code).toBe(0);
       expect(checked.out).toBe('');
       expect(checked.err.trimEnd()).toMatch(message);
@@ -365,7 +370,8 @@ describe('--stdin-name naming an excluded path', () => {
     // From beside the project: the project's .pneuignore (the folder of its pneumark.config.json) applies.
     const left = await cli(['check', '-', '--stdin-name', '../proj/ward/skip.pneu'], elsewhere, BROKEN);
     expect(left.code).toBe(0);
-    expect(left.err.trimEnd()).toBe('pneumark: the note on standard input was not checked: ../proj/ward/skip.pneu is excluded by .pneuignore');
+    // The file is named by its absolute path, as it lies outside the working folder.
+    expect(left.err.trimEnd()).toBe(`pneumark: the note on standard input was not checked: ../proj/ward/skip.pneu is excluded by ${join(dir, 'proj', '.pneuignore')} (line 1: ward/skip.pneu)`);
     // A note beside it is read with the project's settings (kPa: PaCO2 5.3 is not doubted).
     const kept = await cli(['check', '-', '--stdin-name', '../proj/ward/other.pneu'], elsewhere, NOTE);
     expect(kept.code).toBe(0);
@@ -376,12 +382,53 @@ describe('--stdin-name naming an excluded path', () => {
     const own = await cli(['check', '-', '--stdin-name', '../proj/ward/other.pneu'], elsewhere, NOTE);
     expect(own.code).toBe(0);
     expect(own.out).toBe('0 notes checked: 0 errors, 0 warnings, 0 info.\n');
-    expect(own.err).toMatch(/excluded by \.pneuignore/);
+    expect(own.err.trimEnd()).toBe(`pneumark: the note on standard input was not checked: ../proj/ward/other.pneu is excluded by ${join(dir, 'proj', 'ward', '.pneuignore')} (line 1: other.pneu)`);
+    // From the project's folder, relative to it.
+    const inside = await cli(['check', '-', '--stdin-name', 'ward/other.pneu'], cwd(dir), NOTE);
+    expect(inside.err.trimEnd()).toBe('pneumark: the note on standard input was not checked: ward/other.pneu is excluded by ward/.pneuignore (line 1: other.pneu)');
     // The project file of an excluded note is not read: its problems are not reported either.
     writeFileSync(join(dir, 'proj', 'pneumark.config.json'), '{ "gasUnit": "kpa" }');
     const bad = await cli(['check', '-', '--stdin-name', '../proj/ward/skip.pneu'], elsewhere, BROKEN);
     expect(bad.code).toBe(0);
     expect(bad.err).not.toMatch(/pneumark\.config\.json/);
+  });
+
+  it('names the line that matches: the last one, or the one that leaves out a folder above the note', async () => {
+    const dir = excluding();
+    writeFileSync(join(dir, 'proj', '.pneuignore'), '# drafts and skipped notes\n*.pneu\n!keep.pneu\n\nward/skip.pneu\ndrafts/\n');
+    const line = async (name: string) => (await cli(['check', '-', '--stdin-name', name], cwd(dir), BROKEN)).err.trimEnd();
+    expect(await line('ward/skip.pneu')).toBe('pneumark: the note on standard input was not checked: ward/skip.pneu is excluded by .pneuignore (line 5: ward/skip.pneu)');
+    expect(await line('other.pneu')).toBe('pneumark: the note on standard input was not checked: other.pneu is excluded by .pneuignore (line 2: *.pneu)');
+    expect(await line('drafts/keep.pneu')).toBe('pneumark: the note on standard input was not checked: drafts/keep.pneu is excluded by .pneuignore (line 6: drafts/)');
+    // Taken back by `!keep.pneu`: checked.
+    expect(await line('keep.pneu')).toBe('');
+  });
+
+  it('a file named on the command line that .pneuignore leaves out: the problem names the file and the line', async () => {
+    const dir = excluding();
+    writeFileSync(join(dir, 'proj', 'ward', 'skip.pneu'), BROKEN);
+    const r = await cli(['check', 'ward/skip.pneu'], cwd(dir));
+    expect(r.code).toBe(2);
+    expect(r.out).toContain('ward/skip.pneu: cannot check: excluded by .pneuignore (line 1: ward/skip.pneu); no note left to read');
+    expect(r.err.trimEnd()).toBe('pneumark: ward/skip.pneu: excluded by .pneuignore (line 1: ward/skip.pneu); no note left to read');
+    // Excluded by --exclude, it says so as before.
+    writeFileSync(join(dir, 'proj', 'ward', 'b.pneu'), BROKEN);
+    const by = await cli(['check', 'ward/b.pneu', '--exclude', 'b.pneu'], cwd(dir));
+    expect(by.err.trimEnd()).toBe('pneumark: ward/b.pneu: excluded by --exclude; no note left to read');
+  });
+
+  it('an absolute --exclude path that exists is still a path, and an anchored pattern that exists still a pattern', async () => {
+    const dir = excluding();
+    writeFileSync(join(dir, 'proj', 'ward', 'a.pneu'), BROKEN);
+    // `/ward` names a folder below the working folder: read as the anchored pattern, as before.
+    const anchored = await cli(['check', '-', '--stdin-name', 'ward/new.pneu', '--exclude', '/ward'], cwd(dir), BROKEN);
+    expect(anchored.err.trimEnd()).toBe('pneumark: the note on standard input was not checked: ward/new.pneu is excluded by --exclude /ward');
+    const existing = await cli(['check', '-', '--stdin-name', 'ward/new.pneu', '--exclude', join(dir, 'proj', 'ward')], cwd(dir), BROKEN);
+    expect(existing.err.trimEnd()).toBe(`pneumark: the note on standard input was not checked: ward/new.pneu is excluded by --exclude ${join(dir, 'proj', 'ward')}`);
+    // An absolute path of no file leaves out that path only.
+    const other = await cli(['check', '-', '--stdin-name', 'ward/new.pneu', '--exclude', join(dir, 'proj', 'ward', 'old.pneu')], cwd(dir), BROKEN);
+    expect(other.err).toBe('');
+    expect(other.out).toMatch(/PN101/);
   });
 
   it('with other inputs: they are checked, and the run is as if the note were not piped in', async () => {
@@ -402,6 +449,6 @@ describe('--stdin-name naming an excluded path', () => {
     expect(flat(HELP.show!)).toMatch(/shown even when \.pneuignore or --exclude would leave it out/);
     expect(flat(HELP.main!)).toMatch(/check, export and fmt leave the note alone when PATH is excluded/);
     const readme = flat(readFileSync(join(process.cwd(), 'README.md'), 'utf8'));
-    expect(readme).toMatch(/the note on standard input was not checked: ward\/skip\.pneu is excluded by \.pneuignore/);
+    expect(readme).toMatch(/the note on standard input was not checked: ward\/skip\.pneu is excluded by \.pneuignore \(line 1: ward\/skip\.pneu\)/);
   });
 });

@@ -80,6 +80,14 @@ Options:
 Options:
   --format text|json|sarif   output format (default text); sarif is SARIF 2.1.0 for code-scanning tools
   --quiet                    list error findings only (text, json and sarif; totals count all)
+  --redact                   keep the notes' own words out of the output, for sharing a report of a
+                             dataset: name each note by its place in the run (note-00001 …, paths
+                             sorted) instead of its path; in messages, write [redacted] for what
+                             they quote of a note that is not a key, a unit, a known word or a
+                             number (all they quote in privacy findings), for its timepoint labels
+                             and for a mode Pneumark does not know; leave out fixes (json, sarif);
+                             in json, labels and such words of the timepoints too. Standard error
+                             still names notes by their paths
   --max-warnings N           exit 1 when there are more than N warnings (N a whole number, 0 or more)
   --exclude PATTERN          leave out paths matching PATTERN (gitignore syntax), or a
                              path (absolute, or from ./ or ../); repeatable

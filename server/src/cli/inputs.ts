@@ -75,7 +75,11 @@ export interface InputList {
 export interface StdinExclusion {
   /** The path, as `shownFilePath` writes it. */
   readonly path: string;
-  /** `.pneuignore`, or `--exclude` and the value that leaves it out (`--exclude drafts/`). */
+  /**
+   * The `.pneuignore` file that leaves it out (relative to the working folder, or absolute when
+   * outside it) with the line and pattern that match (`.pneuignore (line 2: drafts/)`), or
+   * `--exclude` and the value that leaves it out (`--exclude drafts/`).
+   */
   readonly by: string;
 }
 
@@ -97,9 +101,36 @@ interface ArgumentYield {
   readonly root: string;
   found: number;
   readonly excludedBy: Set<ExclusionSource>;
+  /** For a file: the line of a `.pneuignore` that leaves it out, when one does. */
+  ignoredBy: IgnoreLineHit | null;
 }
 
 type ExclusionSource = '--exclude' | typeof IGNORE_FILE;
+
+/** The line of a `.pneuignore` file that leaves a note out (the last that matches it or a folder above it). */
+interface IgnoreLineHit {
+  readonly by: typeof IGNORE_FILE;
+  /** The file, absolute. */
+  readonly file: string;
+  /** Its line, from 1, and the pattern written there. */
+  readonly line: number;
+  readonly pattern: string;
+}
+
+/** What leaves a note out: `--exclude`, or a line of a `.pneuignore` file. */
+type Exclusion = { readonly by: '--exclude' } | IgnoreLineHit;
+
+const BY_EXCLUDE: Exclusion = { by: '--exclude' };
+
+/**
+ * A `.pneuignore` line that leaves a note out, as messages name it: the file relative to the
+ * working folder (absolute when outside it), the line and the pattern (`ward/.pneuignore (line 2:
+ * drafts/)`).
+ */
+function ignoreLineText(hit: IgnoreLineHit, cwd: string): string {
+  const rel = relative(cwd, hit.file);
+  return `${toPosix(outside(rel) ? hit.file : rel)} (line ${hit.line}: ${hit.pattern})`;
+}
 
 /**
  * The notes `args` name, sorted, minus what the exclusions leave out. `stdinName` (`--stdin-name`,
@@ -138,7 +169,7 @@ export function listInputs(args: readonly string[], cwd: string, exclude: readon
       statError = error;
     }
     if (stat === null && errorCode(statError) === 'ENOENT' && isDynamicPattern(arg)) {
-      const from: ArgumentYield = { arg, kind: 'pattern', root: resolve(cwd, staticPrefix(arg)), found: 0, excludedBy: new Set() };
+      const from: ArgumentYield = { arg, kind: 'pattern', root: resolve(cwd, staticPrefix(arg)), found: 0, excludedBy: new Set(), ignoredBy: null };
       yields.push(from);
       walk.root = from.root;
       const matches = globSync(anyCaseExtension(arg), { cwd, onlyFiles: true, dot: false, ignore: ['**/node_modules/**'], expandDirectories: false, fs: walk.fs });
@@ -151,7 +182,7 @@ export function listInputs(args: readonly string[], cwd: string, exclude: readon
       continue;
     }
     if (stat.isDirectory()) {
-      const from: ArgumentYield = { arg, kind: 'folder', root: abs, found: 0, excludedBy: new Set() };
+      const from: ArgumentYield = { arg, kind: 'folder', root: abs, found: 0, excludedBy: new Set(), ignoredBy: null };
       yields.push(from);
       const base = toPosix(relative(cwd, abs)) || '.';
       walk.root = abs;
@@ -164,7 +195,7 @@ export function listInputs(args: readonly string[], cwd: string, exclude: readon
       // `resolve` drops a trailing slash, but opening `ward.pneu/` fails (ENOTDIR).
       problems.push({ path: arg, text: null, problem: TRAILING_SLASH });
     } else {
-      const from: ArgumentYield = { arg, kind: 'file', root: dirname(abs), found: 0, excludedBy: new Set() };
+      const from: ArgumentYield = { arg, kind: 'file', root: dirname(abs), found: 0, excludedBy: new Set(), ignoredBy: null };
       yields.push(from);
       add(shownFilePath(arg, cwd), from);
     }
@@ -173,9 +204,14 @@ export function listInputs(args: readonly string[], cwd: string, exclude: readon
   const excludedBy = exclusions(cwd, exclude, ignoreFiles);
   const kept: string[] = [];
   for (const [path, by] of found) {
-    const source = excludedBy(path, by[0]!.root);
-    if (source === null) kept.push(path);
-    else for (const from of by) from.excludedBy.add(source);
+    const exclusion = excludedBy(path, by[0]!.root);
+    if (exclusion === null) kept.push(path);
+    else {
+      for (const from of by) {
+        from.excludedBy.add(exclusion.by);
+        if (exclusion.by === IGNORE_FILE && from.kind === 'file') from.ignoredBy = exclusion;
+      }
+    }
   }
   // A folder below those named that cannot be listed would otherwise pass unnoticed, its notes
   // neither checked nor exported: it is a problem, unless an exclusion leaves out what it holds.
@@ -193,12 +229,12 @@ export function listInputs(args: readonly string[], cwd: string, exclude: readon
   // (root: the file's folder, as for a file named on the command line).
   let stdinExcluded: StdinExclusion | null = null;
   if (stdin && stdinName !== null) {
-    const source = excludedBy(stdinName, dirname(resolve(cwd, stdinName)));
-    if (source !== null) stdinExcluded = { path: stdinName, by: source === IGNORE_FILE ? IGNORE_FILE : `--exclude ${excludingValue(cwd, exclude, stdinName)}` };
+    const exclusion = excludedBy(stdinName, dirname(resolve(cwd, stdinName)));
+    if (exclusion !== null) stdinExcluded = { path: stdinName, by: exclusion.by === IGNORE_FILE ? ignoreLineText(exclusion, cwd) : `--exclude ${excludingValue(cwd, exclude, stdinName)}` };
   }
   if (files.length === 0 && !stdin && problems.length === 0) {
     // Nothing to read, and nothing said so far: a CI job pointed at the wrong folder must not pass.
-    for (const from of yields) problems.push({ path: from.arg, text: null, problem: nothingFound(from) });
+    for (const from of yields) problems.push({ path: from.arg, text: null, problem: nothingFound(from, cwd) });
   }
   // Standard input left out by its name is not read at all.
   const readStdin = stdin && stdinExcluded === null;
@@ -221,21 +257,21 @@ export function listInputs(args: readonly string[], cwd: string, exclude: readon
 function excludingValue(cwd: string, exclude: readonly string[], path: string): string {
   const abs = resolve(cwd, path);
   const { paths, patterns } = splitExclusions(cwd, exclude);
-  const holding = paths.findIndex((p) => abs === p || abs.startsWith(p.endsWith(sep) ? p : p + sep));
-  if (holding >= 0) return exclude.filter((value) => isPathExclusion(cwd, value))[holding] ?? paths[holding]!;
+  const holding = paths.find(({ path: p }) => holds(p, abs));
+  if (holding !== undefined) return holding.value;
   let rel = relative(cwd, abs);
   if (outside(rel)) rel = relative(dirname(abs), abs);
-  const typed = exclude.filter((value) => !isPathExclusion(cwd, value));
   for (let i = patterns.length - 1; i >= 0; i--) {
-    if (!patterns[i]!.startsWith('!') && exclusionPatterns([patterns[i]!]).ignores(toPosix(rel))) return typed[i] ?? patterns[i]!;
+    const { pattern, value } = patterns[i]!;
+    if (!pattern.startsWith('!') && exclusionPatterns([pattern]).ignores(toPosix(rel))) return value;
   }
-  return typed[typed.length - 1] ?? '';
+  return patterns[patterns.length - 1]?.value ?? '';
 }
 
 /** Why an argument brought in no note (every argument brought in none). */
-function nothingFound(from: ArgumentYield): string {
+function nothingFound(from: ArgumentYield, cwd: string): string {
   const by = [...from.excludedBy].sort().join(' and ');
-  if (from.kind === 'file') return `excluded by ${by || 'an exclusion'}; no note left to read`;
+  if (from.kind === 'file') return `excluded by ${from.ignoredBy !== null ? ignoreLineText(from.ignoredBy, cwd) : by || 'an exclusion'}; no note left to read`;
   if (from.found === 0) return `no ${NOTE_EXTENSION} notes found in this folder (hidden folders and node_modules are skipped)`;
   const what = from.kind === 'folder' ? `${NOTE_EXTENSION} note${from.found === 1 ? '' : 's'} in this folder` : `file${from.found === 1 ? '' : 's'} this pattern matches`;
   return `no note left to read: the ${from.found === 1 ? '' : `${from.found} `}${what} ${from.found === 1 ? 'is' : 'are'} excluded by ${by || 'an exclusion'}`;
@@ -390,12 +426,24 @@ const TRAILING_SLASH = 'is a file, not a folder (leave out the last /)';
 function pathProblem(abs: string, error: unknown): string {
   const code = errorCode(error);
   if (code === 'ENOENT' && abs.includes('\uFFFD') && undecodableName(abs)) return NAME_NOT_UTF8;
-  if (code === 'ENOENT') return isLink(abs) ? `a symbolic link to something that does not exist (${linkTarget(abs)})` : 'no such file or folder';
+  if (code === 'ENOENT') return isLink(abs) ? `${LINK_TO_NOTHING} (${linkTarget(abs)})` : 'no such file or folder';
   if (code === 'ELOOP') return 'a loop of symbolic links';
   if (code === 'EACCES' || code === 'EPERM') return 'permission denied (a folder on the way to it cannot be searched)';
   if (code === 'ENOTDIR') return 'a part of the path is not a folder';
   if (code === 'ENAMETOOLONG') return 'the path is too long';
   return `cannot be read (${code ?? 'unknown error'})`;
+}
+
+/** Why a path cannot be read when it is a symbolic link to nothing; the link's target follows in brackets. */
+const LINK_TO_NOTHING = 'a symbolic link to something that does not exist';
+
+/**
+ * A problem as `check --redact` writes it: the one problem that quotes a path (the target of a
+ * symbolic link to nothing, which may name a patient as a file name can) with the path replaced by
+ * `replacement`; the others are Pneumark's own words and stay.
+ */
+export function redactedProblem(problem: string, replacement: string): string {
+  return problem.startsWith(`${LINK_TO_NOTHING} (`) ? `${LINK_TO_NOTHING} (${replacement})` : problem;
 }
 
 /** A file whose name is not UTF-8: listed (with U+FFFD for each bad byte), but not to be opened by that name. */
@@ -458,6 +506,18 @@ function exclusionPatterns(lines: readonly string[]): Ignore {
   return ignore({ ignorecase: false }).add(lines.map(anyCaseExtension));
 }
 
+/** The same for the lines of a `.pneuignore` file, each rule marked with its line number (from 1), so a match can name its line. */
+function markedExclusionPatterns(lines: readonly string[]): Ignore {
+  const rules: { pattern: string; mark: string }[] = [];
+  lines.forEach((line, i) => { if (globstarsIn(line) <= MAX_GLOBSTARS) rules.push({ pattern: anyCaseExtension(line), mark: String(i + 1) }); });
+  return ignore({ ignorecase: false }).add(rules);
+}
+
+/** Whether the path `held` is `folder` or lies below it (both absolute). */
+function holds(folder: string, held: string): boolean {
+  return held === folder || held.startsWith(folder.endsWith(sep) ? folder : folder + sep);
+}
+
 /**
  * Which exclusion (if any) leaves a note out. `--exclude` patterns (gitignore syntax) are matched
  * against the note's path relative to the working folder; a note outside the working folder is
@@ -465,19 +525,21 @@ function exclusionPatterns(lines: readonly string[]): Ignore {
  * (for a file, its folder; for a pattern, its fixed part), so `check ../notes --exclude old.pneu`
  * leaves out `../notes/old.pneu`. `.pneuignore` files are those of `IgnoreFiles`.
  */
-function exclusions(cwd: string, exclude: readonly string[], ignoreFiles: IgnoreFiles): (path: string, root: string) => ExclusionSource | null {
-  const { paths, patterns } = splitExclusions(cwd, exclude);
+function exclusions(cwd: string, exclude: readonly string[], ignoreFiles: IgnoreFiles): (path: string, root: string) => Exclusion | null {
+  const split = splitExclusions(cwd, exclude);
+  const paths = split.paths.map((p) => p.path);
   // No pattern excludes nothing: no need to ask of each note.
-  const fromArgs: Ignore | null = patterns.length === 0 ? null : exclusionPatterns(patterns);
+  const fromArgs: Ignore | null = split.patterns.length === 0 ? null : exclusionPatterns(split.patterns.map((p) => p.pattern));
   return (path: string, root: string) => {
     const abs = resolve(cwd, path);
-    for (const p of paths) if (abs === p || abs.startsWith(p.endsWith(sep) ? p : p + sep)) return '--exclude';
+    for (const p of paths) if (holds(p, abs)) return BY_EXCLUDE;
     let rel = relative(cwd, abs);
     const inCwd = !outside(rel);
     if (!inCwd) rel = relative(root, abs);
     if (rel === '' || outside(rel)) return null;
-    if (ignoreFiles.leaveOut(abs, inCwd, root)) return IGNORE_FILE;
-    if (fromArgs?.ignores(toPosix(rel))) return '--exclude';
+    const hit = ignoreFiles.leaveOut(abs, inCwd, root);
+    if (hit !== null) return hit;
+    if (fromArgs?.ignores(toPosix(rel))) return BY_EXCLUDE;
     return null;
   };
 }
@@ -486,36 +548,38 @@ function exclusions(cwd: string, exclude: readonly string[], ignoreFiles: Ignore
  * `--exclude` values that name a file or folder by its absolute path (`--exclude /data/notes/old`,
  * as a shell's tab completion writes it), apart from gitignore patterns. In gitignore syntax a
  * leading `/` anchors a pattern to the working folder, so such a value would match nothing; it is
- * taken as an absolute path when that path exists and the anchored reading (below the working
- * folder) does not. So are values that start with `./` or `../` (a path from the working folder, as a
- * shell's tab completion writes it), which gitignore syntax would match against nothing; with a
- * wildcard, `./` becomes the anchoring `/`. Everything at or below such a path is left out.
+ * taken as an absolute path when the anchored reading (below the working folder) names nothing
+ * that exists and the path does, or when neither exists and it holds no wildcard: then as both, an
+ * absolute path and an anchored pattern (a note piped in with `--stdin-name` is often not saved
+ * yet, nor its folder made). So are values that start with `./` or `../` (a path from the working
+ * folder, as a shell's tab completion writes it), which gitignore syntax would match against
+ * nothing; with a wildcard, `./` becomes the anchoring `/`. Everything at or below such a path is
+ * left out. Each path and pattern comes with the value it was read from, as typed.
  */
-function splitExclusions(cwd: string, exclude: readonly string[]): { paths: string[]; patterns: string[] } {
-  const paths: string[] = [];
-  const patterns: string[] = [];
+function splitExclusions(cwd: string, exclude: readonly string[]): { paths: { path: string; value: string }[]; patterns: { pattern: string; value: string }[] } {
+  const paths: { path: string; value: string }[] = [];
+  const patterns: { pattern: string; value: string }[] = [];
   for (const value of exclude) {
-    if (isAbsolute(value) && existsSync(value) && !existsSync(join(cwd, value))) paths.push(resolve(value));
-    else if (/^\.\.?(\/|$)/.test(value)) {
+    if (isAbsolute(value)) {
+      const anchored = existsSync(join(cwd, value));
+      const asPath = !anchored && (existsSync(value) || !isDynamicPattern(value));
+      if (asPath) paths.push({ path: resolve(value), value });
+      // Existing, the path is what it names; missing, it may name either.
+      if (!asPath || !existsSync(value)) patterns.push({ pattern: value, value });
+    } else if (/^\.\.?(\/|$)/.test(value)) {
       // `./draft.pneu`, `../notes/old`: a path from the working folder, which gitignore syntax
       // would match against nothing. A wildcard after `./` is anchored there, as a leading `/` is.
-      if (isPathExclusion(cwd, value)) paths.push(resolve(cwd, value));
-      else if (value.startsWith('./')) patterns.push(`/${value.replace(/^(\.\/)+/, '')}`);
-      else patterns.push(value);
-    } else patterns.push(value);
+      if (!isDynamicPattern(value)) paths.push({ path: resolve(cwd, value), value });
+      else if (value.startsWith('./')) patterns.push({ pattern: `/${value.replace(/^(\.\/)+/, '')}`, value });
+      else patterns.push({ pattern: value, value });
+    } else patterns.push({ pattern: value, value });
   }
   return { paths, patterns };
 }
 
-/** Whether `splitExclusions` takes an `--exclude` value as a path rather than a pattern. */
-function isPathExclusion(cwd: string, value: string): boolean {
-  if (isAbsolute(value) && existsSync(value) && !existsSync(join(cwd, value))) return true;
-  return /^\.\.?(\/|$)/.test(value) && !isDynamicPattern(value);
-}
-
 /** A `.pneuignore` file's patterns and where they are matched from. */
 interface IgnoreLevel {
-  readonly patterns: Ignore;
+  readonly patterns: IgnoreFile;
   /** Its folder relative to the top (see `IgnoreFiles`), with a slash after it; empty for the top. */
   readonly prefix: string;
 }
@@ -526,8 +590,15 @@ interface FolderState {
   readonly prefix: string;
   /** The files that apply in the folder, outermost first (its own last). */
   readonly levels: readonly IgnoreLevel[];
-  /** Whether the folder itself (or a folder between the top and it) is left out. */
-  readonly left: boolean;
+  /** The line that leaves the folder itself (or a folder between the top and it) out; null when none does. */
+  readonly left: IgnoreLineHit | null;
+}
+
+/** A `.pneuignore` file read: where it is, its lines, and its patterns (each marked with its line number). */
+interface IgnoreFile {
+  readonly file: string;
+  readonly lines: readonly string[];
+  readonly patterns: Ignore;
 }
 
 /**
@@ -548,7 +619,7 @@ interface FolderState {
  * per note.
  */
 class IgnoreFiles {
-  private readonly read = new Map<string, Ignore | null>();
+  private readonly read = new Map<string, IgnoreFile | null>();
   /** Lines left out of the `.pneuignore` files read, for holding more `**` than `MAX_GLOBSTARS`: file and 1-based line. */
   readonly skipped: { readonly file: string; readonly line: number }[] = [];
   private readonly folders = new Map<string, FolderState>();
@@ -559,8 +630,8 @@ class IgnoreFiles {
 
   constructor(private readonly cwd: string) {}
 
-  /** Whether the `.pneuignore` files leave out the note at `abs` (inside the working folder or not; brought in by `root`). */
-  leaveOut(abs: string, inCwd: boolean, root: string): boolean {
+  /** The line of a `.pneuignore` file that leaves out the note at `abs` (inside the working folder or not; brought in by `root`), or null. */
+  leaveOut(abs: string, inCwd: boolean, root: string): IgnoreLineHit | null {
     const folder = dirname(abs);
     const key = `${inCwd ? '' : '>'}${root}\0${folder}`;
     let state = this.noteFolders.get(key);
@@ -568,8 +639,7 @@ class IgnoreFiles {
       state = this.folder(folder, this.top(folder, inCwd, root), inCwd ? null : root);
       this.noteFolders.set(key, state);
     }
-    if (state.left) return true;
-    return leftOut(state.levels, `${state.prefix}${toPosix(basename(abs))}`);
+    return state.left ?? leftOut(state.levels, `${state.prefix}${toPosix(basename(abs))}`);
   }
 
   /** The highest folder whose `.pneuignore` applies to notes in `folder`. */
@@ -615,7 +685,7 @@ class IgnoreFiles {
       const outerPrefix = outerBase === null ? '' : toPosix(relative(folder, outerBase));
       if (outer) levels.push({ patterns: outer, prefix: outerPrefix === '' || outside(outerPrefix) ? '' : `${outerPrefix}/` });
       if (own) levels.push({ patterns: own, prefix: '' });
-      state = { prefix: '', levels, left: false };
+      state = { prefix: '', levels, left: null };
     } else {
       const parent = this.folder(dirname(folder), top, outerBase);
       const prefix = `${toPosix(rel)}/`;
@@ -623,7 +693,7 @@ class IgnoreFiles {
       state = {
         prefix,
         levels: own ? [...parent.levels, { patterns: own, prefix }] : parent.levels,
-        left: parent.left || leftOut(parent.levels, prefix),
+        left: parent.left ?? leftOut(parent.levels, prefix),
       };
     }
     this.folders.set(key, state);
@@ -636,7 +706,7 @@ class IgnoreFiles {
    * regular file: a `.pneuignore` that is a pipe nobody writes to would hold the run up forever,
    * and one that is a link to /dev/zero would fill the memory.
    */
-  private patternsIn(folder: string): Ignore | null {
+  private patternsIn(folder: string): IgnoreFile | null {
     let patterns = this.read.get(folder);
     if (patterns === undefined) {
       patterns = null;
@@ -648,8 +718,9 @@ class IgnoreFiles {
           // .pneuignore comes with the notes, and could otherwise hold a run up for hours.
           if (stat.isFile()) {
             const lines = readAll(fd, stat.size).toString('utf8').split(/\r?\n/);
-            lines.forEach((line, i) => { if (globstarsIn(line) > MAX_GLOBSTARS) this.skipped.push({ file: join(folder, IGNORE_FILE), line: i + 1 }); });
-            patterns = exclusionPatterns(lines.filter((line) => globstarsIn(line) <= MAX_GLOBSTARS));
+            const file = join(folder, IGNORE_FILE);
+            lines.forEach((line, i) => { if (globstarsIn(line) > MAX_GLOBSTARS) this.skipped.push({ file, line: i + 1 }); });
+            patterns = { file, lines, patterns: markedExclusionPatterns(lines) };
           }
         } finally {
           closeSync(fd);
@@ -664,18 +735,20 @@ class IgnoreFiles {
 }
 
 /**
- * Whether `levels` (outermost first, a deeper one deciding over a shallower) leave out `path`, a
- * path relative to the top (a folder's with a slash after it).
+ * The line that leaves out `path` (a path relative to the top, a folder's with a slash after it)
+ * by `levels` (outermost first, a deeper one deciding over a shallower), or null when they keep it.
  */
-function leftOut(levels: readonly IgnoreLevel[], path: string): boolean {
-  let left = false;
-  for (const { patterns, prefix } of levels) {
+function leftOut(levels: readonly IgnoreLevel[], path: string): IgnoreLineHit | null {
+  let left: IgnoreLineHit | null = null;
+  for (const { patterns: { file, lines, patterns }, prefix } of levels) {
     // Only below its own folder (the working folder's file for notes outside it applies below the
     // folder named on the command line, which may be below the top).
     if (!path.startsWith(prefix) || path === prefix) continue;
     const verdict = patterns.test(path.slice(prefix.length));
-    if (verdict.ignored) left = true;
-    else if (verdict.unignored) left = false;
+    if (verdict.ignored) {
+      const line = Number(verdict.rule?.mark ?? 0);
+      left = { by: IGNORE_FILE, file, line, pattern: (lines[line - 1] ?? '').trim() };
+    } else if (verdict.unignored) left = null;
   }
   return left;
 }

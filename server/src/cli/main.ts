@@ -21,7 +21,9 @@ import { renderSettingsTable, SETTINGS_END, SETTINGS_START } from '../core/setti
 import { colourWanted, paint, type Paint } from './colour';
 import { runExport, exportRenderer } from './export-command';
 import { runFmt } from './fmt-command';
-import { isBlankNote, listInputs, MAX_NOTE_BYTES, NO_NOTE, readNote, readUpTo, shownFilePath, STDIN_NAME_WITHOUT_STDIN, stdinExcludedLine } from './inputs';
+import { isBlankNote, listInputs, MAX_NOTE_BYTES, NO_NOTE, readNote, readUpTo, redactedProblem, shownFilePath, shownPath, STDIN_NAME_WITHOUT_STDIN, stdinExcludedLine } from './inputs';
+import { REDACTED_WORD } from '../core/export/columns';
+import { notePseudonym } from '../core/export/pseudonym';
 import { aloneLimits } from './analyse-alone';
 import { gather, type BatchDone, type WorkDone, type WorkItem } from './pool';
 import { CheckJsonWriter, countOutcome, jsonFileEntryOrProblem, writeCheckSarif, writeCheckText, type FileOutcome } from './render-check';
@@ -129,12 +131,22 @@ const checkOptions = z.object({
   jobs: jobsOption,
   progress: z.boolean().default(true),
   stdinName: stdinNameOption,
+  redact: z.boolean().default(false),
 });
 
+/**
+ * A report as `check --redact` writes it: named by the note's place in the run (`index` from 0),
+ * its problem without a path. What a worker sends is so already; a report made elsewhere (a worker
+ * that failed, a note analysed alone that ran out of memory) is not.
+ */
+function redactedReport(report: FileReport, index: number): FileReport {
+  return { ...report, path: notePseudonym(index + 1), problem: report.problem === null ? null : redactedProblem(report.problem, REDACTED_WORD) };
+}
+
 async function check(args: readonly string[], io: Io): Promise<number> {
-  const { positionals, values } = parse(args, { format: { type: 'string' }, quiet: { type: 'boolean' }, 'max-warnings': { type: 'string' }, exclude: { type: 'string', multiple: true }, jobs: { type: 'string' }, 'no-progress': { type: 'boolean' }, 'stdin-name': { type: 'string' } });
+  const { positionals, values } = parse(args, { format: { type: 'string' }, quiet: { type: 'boolean' }, 'max-warnings': { type: 'string' }, exclude: { type: 'string', multiple: true }, jobs: { type: 'string' }, 'no-progress': { type: 'boolean' }, 'stdin-name': { type: 'string' }, redact: { type: 'boolean' } });
   if (values.help) { io.stdout.write(`${HELP.check}\n`); return EXIT.ok; }
-  const opts = validate(checkOptions, { format: values.format, quiet: values.quiet, maxWarnings: values['max-warnings'], exclude: values.exclude, jobs: values.jobs, progress: !values['no-progress'], stdinName: values['stdin-name'] }, { progress: '--no-progress' });
+  const opts = validate(checkOptions, { format: values.format, quiet: values.quiet, maxWarnings: values['max-warnings'], exclude: values.exclude, jobs: values.jobs, progress: !values['no-progress'], stdinName: values['stdin-name'], redact: values.redact }, { progress: '--no-progress' });
   if (positionals.length === 0) throw new UsageError('check needs at least one file, folder, pattern or - (stdin)');
   const stdinName = opts.stdinName === undefined ? null : shownFilePath(opts.stdinName, io.cwd);
   const { files, problems, stdinExcluded } = listInputs(positionals, io.cwd, opts.exclude, stdinName);
@@ -143,30 +155,37 @@ async function check(args: readonly string[], io: Io): Promise<number> {
   if (stdinExcluded !== null) io.stderr.write(`pneumark: ${visible(stdinExcludedLine(stdinExcluded, 'checked'))}\n`);
   const configs = new ConfigReport(io.cwd, stdinName).notes(files);
   const worker = new NoteWorker(io.cwd, {}, null, stdinName);
-  const unread: FileOutcome[] = problems.map((p) => ({ path: p.path, findings: [], problem: p.problem }));
+  // Standard error names each note by its path, for whoever runs the command; with --redact,
+  // standard output (what is shared) names a note by its place in the run, and an input that
+  // brought in no note by [redacted].
+  const redact = opts.redact;
+  const unread: FileOutcome[] = problems.map((p) => ({ path: redact ? REDACTED_WORD : p.path, findings: [], problem: redact && p.problem !== null ? redactedProblem(p.problem, REDACTED_WORD) : p.problem }));
+  const named = (report: FileReport, index: number): FileReport => (redact ? redactedReport(report, index) : report);
   // JSON (with every timepoint) is written a note at a time as the notes come in, in their order,
   // and each note's timepoints are let go once written.
   const output = new Output(io.stdout);
   const json = opts.format === 'json' ? new CheckJsonWriter(output, opts.quiet) : null;
   if (json) for (const o of unread) json.file(o);
   const streaming = json ? {
-    inOrder: (r: FileReport): FileReport => written(r, json.file(r)),
+    inOrder: (r: FileReport, i: number): FileReport => written(r, json.file(named(r, i))),
     ready: () => output.ready(),
   } : undefined;
-  const reports = await gather(files, { kind: 'check', timepoints: json !== null, errorsOnly: opts.quiet }, io, worker, opts.progress && !(json && io.stdout.isTTY), 'checking', opts.jobs, streaming);
-  const outcomes: FileOutcome[] = [...unread, ...reports];
+  const reports = await gather(files, { kind: 'check', timepoints: json !== null, errorsOnly: opts.quiet, redact }, io, worker, opts.progress && !(json && io.stdout.isTTY), 'checking', opts.jobs, streaming);
+  const outcomes: FileOutcome[] = [...unread, ...(json ? reports : reports.map(named))];
   const p: Paint = paint(colourWanted(io.stdout, io.env));
   if (json) {
     json.end();
     output.write('\n');
   } else if (opts.format === 'sarif') {
-    await writeCheckSarif(outcomes, opts.quiet, output, configs.sarifProblems());
+    await writeCheckSarif(outcomes, opts.quiet, output, configs.sarifProblems().map((p) => (redact ? { ...p, path: REDACTED_WORD } : p)));
     output.write('\n');
   } else {
     await writeCheckText(outcomes, p, opts.quiet, output);
   }
   const badConfig = reportConfigProblems(configs, io);
-  for (const o of outcomes) if (o.problem) io.stderr.write(`pneumark: ${visible(o.path)}: ${visible(o.problem)}\n`);
+  const pathOf = (o: FileOutcome, k: number): string => (!redact ? o.path : k < problems.length ? problems[k]!.path : shownPath(files[k - problems.length]!, stdinName));
+  const problemOf = (o: FileOutcome, k: number): string | null => (redact && k < problems.length ? problems[k]!.problem : o.problem);
+  outcomes.forEach((o, k) => { if (o.problem) io.stderr.write(`pneumark: ${visible(pathOf(o, k))}: ${visible(problemOf(o, k) ?? o.problem)}\n`); });
   if (badConfig || outcomes.some((o) => o.problem)) return EXIT.usage;
   const total: SeverityCounts = { error: 0, warning: 0, information: 0, hint: 0 };
   for (const o of outcomes) countOutcome(o, total);

@@ -81,8 +81,9 @@ export interface PoolOptions {
    * Called with each report in the order of the notes, as soon as it and every earlier one are in
    * (so output can be written while later notes are still read); what it returns is kept in the
    * report's place. A command that writes a big output per note keeps only what it needs after.
+   * `index`: the note's place in the run, from 0.
    */
-  readonly inOrder?: (report: FileReport) => FileReport;
+  readonly inOrder?: (report: FileReport, index: number) => FileReport;
   /**
    * Resolves when the output can take more (see `Output`): no further note is read, here or in a
    * worker, before it does, so a slow reader of the output holds the run up instead of the output
@@ -134,7 +135,10 @@ export function handover(total: number, options: Pick<PoolOptions, 'inOrder' | '
       options.onDone?.(done, total);
       const inOrder = options.inOrder;
       if (!inOrder) return;
-      for (let next = reports[passed]; passed < total && next !== undefined; next = reports[passed]) reports[passed++] = inOrder(next);
+      for (let next = reports[passed]; passed < total && next !== undefined; next = reports[passed]) {
+        reports[passed] = inOrder(next, passed);
+        passed++;
+      }
       if (waiting.length > 0 && done - passed <= ahead) {
         const wake = waiting;
         waiting = [];

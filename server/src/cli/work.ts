@@ -8,15 +8,21 @@ import { checkNote, type CheckOptions, type NoteResult } from '../core/check-not
 import type { Settings } from '../core/settings';
 import type { Finding, Severity } from '../core/types';
 import { notePseudonym } from '../core/export/pseudonym';
+import { REDACTED_WORD } from '../core/export/columns';
+import { noteOwnWords, redactedFinding, redactedJson } from '../core/export/redact';
 import { NONE } from '../core/util/lists';
 import { ProjectConfigs } from '../node/project-config';
-import { isBlankNote, noteFromBytes, NO_NOTE, readNoteBytes, shownPath, type NoteBytes, type NoteInput } from './inputs';
+import { isBlankNote, noteFromBytes, NO_NOTE, readNoteBytes, redactedProblem, shownPath, type NoteBytes, type NoteInput } from './inputs';
 import { countSeverities, type SeverityCounts } from './render-show';
 import { timepointText } from './render-check';
 import { timepointsJson } from './timepoints-json';
 
 export type Task =
-  | { readonly kind: 'check'; readonly timepoints: boolean; /** `--quiet`: the JSON entries list error findings only. */ readonly errorsOnly?: boolean }
+  | {
+    readonly kind: 'check'; readonly timepoints: boolean; /** `--quiet`: the JSON entries list error findings only. */ readonly errorsOnly?: boolean;
+    /** `--redact`: the note named by its place in the run, and its own words left out of what is written (see core/export/redact.ts). */
+    readonly redact?: boolean;
+  }
   | { readonly kind: 'export'; readonly format: 'csv' | 'jsonl' | 'fhir'; readonly redactProse: boolean; readonly shiftDays: number; readonly anchor: string | null; /** `--spreadsheet-safe` (CSV). */ readonly spreadsheetSafe: boolean };
 
 export interface FileReport {
@@ -102,18 +108,27 @@ export class NoteWorker {
    */
   analyse(path: string, read: NoteBytes, task: Task, place: number): FileReport {
     const note: NoteInput = noteFromBytes(read);
-    if (note.text === null) return { path: note.path, problem: note.problem, findings: [] };
-    if (isBlankNote(note.text)) return { path: note.path, problem: NO_NOTE, findings: [] };
+    // `check --redact` names the note by its place in the run (`note-00001`), as a redacted export does.
+    const redact = task.kind === 'check' && task.redact === true;
+    const shown = redact ? notePseudonym(place) : note.path;
+    if (note.text === null) return { path: shown, problem: redact ? redactedProblem(note.problem ?? '', REDACTED_WORD) : note.problem, findings: [] };
+    if (isBlankNote(note.text)) return { path: shown, problem: NO_NOTE, findings: [] };
     // An export reads every timepoint's derived values: it finishes the derivations the checks began.
     const result = checkNote(note.text, this.settingsFor(path), task.kind === 'export' ? KEEP_DERIVATIONS : undefined);
     if (task.kind === 'check') {
       // Each timepoint written out at once: a note of thousands of timepoints keeps a string each
       // until its entry is written, not the objects they are written from.
-      const timepoints = task.timepoints ? { timepointTexts: timepointsJson(result, timepointText) } : {};
+      // Redacted, the note's own words (quoted, its labels, a mode of its own) are left out of
+      // the findings and the timepoints' texts (see core/export/redact.ts).
+      const own = redact ? noteOwnWords(result) : null;
+      const written = own === null ? timepointText : (json: unknown) => timepointText(redactedJson(json, own));
+      const timepoints = task.timepoints ? { timepointTexts: timepointsJson(result, written) } : {};
       // `--quiet` shows errors only and counts the rest: only the counts of the others are kept
       // (and cross back from a worker), not a hundred thousand findings of a big folder.
-      if (task.errorsOnly) return { path: note.path, problem: null, findings: result.findings.filter((f) => f.severity === 'error'), counts: countSeverities(result.findings), ...timepoints };
-      return { path: note.path, problem: null, findings: result.findings, ...timepoints };
+      const kept = task.errorsOnly ? result.findings.filter((f) => f.severity === 'error') : result.findings;
+      const findings = own === null ? kept : kept.map((f) => redactedFinding(f, own));
+      if (task.errorsOnly) return { path: shown, problem: null, findings, counts: countSeverities(result.findings), ...timepoints };
+      return { path: shown, problem: null, findings, ...timepoints };
     }
     // An export's output is the payload; its findings only decide the exit code (an error or not),
     // so one error stands for them all rather than every finding crossing back from a worker.

@@ -10,6 +10,7 @@
  * - sarif.ts    a SARIF 2.1.0 log of the findings of many notes
  * - precision.ts the one rule for the numbers they all write (12 significant digits)
  * - pseudonym.ts what names a note in a redacted export, in place of its path (`note-00001`)
+ * - redact.ts   the note's own words left out of findings and readings (`check --redact`)
  *
  * May import: the rest of the core. Must not import: node:fs, vscode, the server or the CLI.
  * To add a format: a new file here taking `(path, result, options)`, exported below, with golden
@@ -37,3 +38,4 @@ export { exportedNumber, EXPORTED_MAX_DECIMALS, EXPORTED_SIGNIFICANT_DIGITS } fr
 export { notePseudonym } from './pseudonym';
 export { stableUuid } from './stable-id';
 export { ucumCode, unitSlug } from './units';
+export { noteOwnWords, redactedFinding, redactedJson, redactedText, type NoteOwnWords } from './redact';
