@@ -91,5 +91,17 @@ describe('a pressure the field never takes in the unit written (PN203): the fix 
     expect(pn203('@ 08:00\nvitals map 70 kPa')[0]?.fixes.map((x) => x.title)).toEqual(['Change to mmHg']);
     // A unit of another kind converts to nothing.
     expect(pn203('@ 08:00\nvitals temp 37 mmHg')[0]?.fixes.map((x) => x.title)).toEqual(['Change to C']);
+    // Not only pressures: a heart rate in Hz (1.2 Hz = 72 /min, 1 Hz being 60 /min).
+    expect(pn203('@ 08:00\nvitals hr 1.2 Hz')[0]?.fixes.map((x) => x.title)).toEqual(['Convert to 72 /min', 'Change to /min']);
+    // 12 hPa is 9 mmHg, as unusual a mean pressure as 12 mmHg: the conversion is not put first.
+    expect(pn203('@ 08:00\nvitals map 12 hPa')[0]?.fixes.map((x) => x.title)).toEqual(['Change to mmHg', 'Convert to 9 mmHg']);
+  });
+
+  it('never converts a concentration: a unit read by one substance\'s molar mass is no other substance\'s', () => {
+    // mg/dL is glucose's unit (18.016 mg/dL per mmol/L), mmol/L of haemoglobin Hb's: 18 mg/dL of
+    // lactate is 2.0 mmol/L (its molar mass, 90.08 g/mol: from memory), not 1.0; albumin has no unit in mmol/L here.
+    expect(pn203('@ 08:00\nlabs lactate 18 mg/dL')[0]?.fixes.map((x) => x.title)).toEqual(['Change to mmol/L']);
+    expect(pn203('@ 08:00\nlabs albumin 0.5 mmol/L')[0]?.fixes.map((x) => x.title)).toEqual(['Change to g/dL']);
+    expect(pn203('@ 08:00\nlabs na 2500 mg/dL')[0]?.fixes.map((x) => x.title)).toEqual(['Change to mmol/L', 'Change to mEq/L']);
   });
 });
