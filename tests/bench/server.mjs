@@ -4,7 +4,10 @@
 // longest wait for one of them is the longest stall the request caused, seen from the editor.
 // Drives the bundled server (dist/server.js) over stdio. Prints figures, asserts nothing.
 //
-//   npm run build && node tests/bench/server.mjs [timepoints] [rounds]
+//   npm run build && node tests/bench/server.mjs [timepoints] [rounds] [--server FILE] [--only NAME]
+//
+// `--server FILE` drives another bundle of the server (one built from an older commit, to compare
+// the two); `--only NAME` asks only the requests whose name starts with NAME (`--only documentSymbol`).
 //
 // Each request is asked `rounds` times (3 by default); "first" is an answer computed afresh
 // (the note is edited before it, so nothing is cached), "again" the same request once more for
@@ -14,14 +17,21 @@ import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { generateNote } from './generate.mjs';
 
-const timepoints = Number(process.argv[2] ?? 10000);
-const rounds = Number(process.argv[3] ?? 3);
+const option = (name) => {
+  const at = process.argv.indexOf(name);
+  return at < 0 ? undefined : process.argv[at + 1];
+};
+const positional = process.argv.slice(2).filter((a, i, all) => !a.startsWith('--') && !all[i - 1]?.startsWith('--'));
+const timepoints = Number(positional[0] ?? 10000);
+const rounds = Number(positional[1] ?? 3);
+const serverFile = option('--server') ?? 'dist/server.js';
+const only = option('--only');
 const PROBE_EVERY_MS = 20;
 
 // A bare JSON-RPC client: a big answer (the outline of the note is about 10 MB of JSON) is not
 // parsed, only its id read, so that this process's own work does not delay the answers to the
 // probes and count as the server's stall.
-const child = spawn(process.execPath, ['dist/server.js', '--stdio'], { stdio: 'pipe' });
+const child = spawn(process.execPath, [serverFile, '--stdio'], { stdio: 'pipe' });
 child.stderr.on('data', () => undefined);
 let nextId = 1;
 const pending = new Map();
@@ -162,7 +172,7 @@ async function measure(method, params) {
 }
 
 const rows = [];
-for (const [name, method, params] of REQUESTS) {
+for (const [name, method, params] of REQUESTS.filter(([name]) => only === undefined || name.startsWith(only))) {
   const first = [];
   const again = [];
   let size = 0;

@@ -55,3 +55,53 @@ describe('a unit the field never takes (PN203): the fixes offer only units the n
     expect(pn203('@ 08:00\nvitals bp 120/80 L')[0]?.fixes.map((x) => x.title)).toEqual(['Change to mmHg']);
   });
 });
+
+describe('a pressure the field never takes in the unit written (PN203): the fix that keeps the value converts it', () => {
+  const pn203 = (text: string) => checkNote(text).findings.filter((f) => f.code === 'PN203');
+  // 1 kPa = 7.50062 mmHg (the unit registry's definition, checked in tests/physiology/units.test.ts).
+
+  it('`map 12 kPa` is offered 90 mmHg first (12 mmHg would be an unusual mean pressure), then mmHg as written', () => {
+    const text = '@ 08:00\nvitals map 12 kPa';
+    const [f] = pn203(text);
+    expect(f?.fixes.map((x) => x.title)).toEqual(['Convert to 90 mmHg', 'Change to mmHg']);
+    const fixed = applyEdits(text, f!.fixes[0]!.edits);
+    expect(fixed).toBe('@ 08:00\nvitals map 90 mmHg');
+    expect(checkNote(fixed).findings.map((x) => x.code)).toEqual([]);
+    // The mean in brackets after a blood pressure, the same.
+    const bracket = '@ 08:00\nvitals bp 120/80 (12 kPa)';
+    expect(applyEdits(bracket, pn203(bracket)[0]!.fixes[0]!.edits)).toBe('@ 08:00\nvitals bp 120/80 (90 mmHg)');
+  });
+
+  it('a blood pressure in kPa converts both numbers', () => {
+    // 16 kPa = 120.0 mmHg, 10.7 kPa = 80.3 mmHg.
+    const text = '@ 08:00\nvitals bp 16/10.7 kPa, hr 80';
+    const [f] = pn203(text);
+    expect(f?.fixes.map((x) => x.title)).toEqual(['Convert to 120/80 mmHg', 'Change to mmHg']);
+    const fixed = applyEdits(text, f!.fixes[0]!.edits);
+    expect(fixed).toBe('@ 08:00\nvitals bp 120/80 mmHg, hr 80');
+    expect(checkNote(fixed).findings.map((x) => x.code)).toEqual([]);
+  });
+
+  it('comes after the unit as written where that reads as ordinary, and is not offered where the conversion is impossible', () => {
+    // 93 mmHg is ordinary; 93 kPa (698 mmHg) is above the 300 mmHg hard maximum.
+    expect(pn203('@ 08:00\nvitals map 93 kPa')[0]?.fixes.map((x) => x.title)).toEqual(['Change to mmHg']);
+    // 9 kPa (68 mmHg) and 9 mmHg are both possible; 9 mmHg is unusual, so the conversion comes first.
+    expect(pn203('@ 08:00\nvitals map 9 kPa')[0]?.fixes.map((x) => x.title)).toEqual(['Convert to 68 mmHg', 'Change to mmHg']);
+    // 70 kPa (525 mmHg) is possible in no way but as written in mmHg.
+    expect(pn203('@ 08:00\nvitals map 70 kPa')[0]?.fixes.map((x) => x.title)).toEqual(['Change to mmHg']);
+    // A unit of another kind converts to nothing.
+    expect(pn203('@ 08:00\nvitals temp 37 mmHg')[0]?.fixes.map((x) => x.title)).toEqual(['Change to C']);
+    // Not only pressures: a heart rate in Hz (1.2 Hz = 72 /min, 1 Hz being 60 /min).
+    expect(pn203('@ 08:00\nvitals hr 1.2 Hz')[0]?.fixes.map((x) => x.title)).toEqual(['Convert to 72 /min', 'Change to /min']);
+    // 12 hPa is 9 mmHg, as unusual a mean pressure as 12 mmHg: the conversion is not put first.
+    expect(pn203('@ 08:00\nvitals map 12 hPa')[0]?.fixes.map((x) => x.title)).toEqual(['Change to mmHg', 'Convert to 9 mmHg']);
+  });
+
+  it('never converts a concentration: a unit read by one substance\'s molar mass is no other substance\'s', () => {
+    // mg/dL is glucose's unit (18.016 mg/dL per mmol/L), mmol/L of haemoglobin Hb's: 18 mg/dL of
+    // lactate is 2.0 mmol/L (its molar mass, 90.08 g/mol: from memory), not 1.0; albumin has no unit in mmol/L here.
+    expect(pn203('@ 08:00\nlabs lactate 18 mg/dL')[0]?.fixes.map((x) => x.title)).toEqual(['Change to mmol/L']);
+    expect(pn203('@ 08:00\nlabs albumin 0.5 mmol/L')[0]?.fixes.map((x) => x.title)).toEqual(['Change to g/dL']);
+    expect(pn203('@ 08:00\nlabs na 2500 mg/dL')[0]?.fixes.map((x) => x.title)).toEqual(['Change to mmol/L', 'Change to mEq/L']);
+  });
+});

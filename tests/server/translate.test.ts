@@ -1,8 +1,10 @@
 // What the server sends for the core's results: text that quotes the note (messages, related
 // information, code action titles) with invisible and reordering characters written as escapes.
 import { describe, expect, it } from 'vitest';
+import { SymbolKind } from 'vscode-languageserver-protocol';
+import type { SymbolInfo } from '../../server/src/core/service/types';
 import type { Finding } from '../../server/src/core/types';
-import { findingsToPublish, toCodeAction, toDiagnostic } from '../../server/src/server/translate';
+import { findingsToPublish, toCodeAction, toDiagnostic, toDocumentSymbol } from '../../server/src/server/translate';
 
 const range = { start: { line: 1, character: 7 }, end: { line: 1, character: 10 } };
 
@@ -53,5 +55,16 @@ describe('findingsToPublish', () => {
       const expected = [...many].sort((a, b) => order[a.severity] - order[b.severity] || a.at - b.at).slice(0, limit).sort((a, b) => a.at - b.at);
       expect(findingsToPublish(many, limit)).toEqual(expected);
     }
+  });
+});
+
+describe('toDocumentSymbol', () => {
+  const line = (n: number, end: number) => ({ start: { line: n, character: 0 }, end: { line: n, character: end } });
+  it('sends no `children` for a symbol that has none (a section line, a timepoint outlined alone), saving their bytes in a big outline', () => {
+    const section: SymbolInfo = { name: 'abg', detail: '7.40/40/90/24', kind: 'section', range: line(2, 23), selectionRange: line(2, 3), children: [] };
+    expect(toDocumentSymbol(section)).toEqual({ name: 'abg', detail: '7.40/40/90/24', kind: SymbolKind.Field, range: line(2, 23), selectionRange: line(2, 3) });
+    expect('children' in toDocumentSymbol(section)).toBe(false);
+    const timepoint: SymbolInfo = { name: 'round', detail: '08:00', kind: 'timepoint', range: { start: line(1, 0).start, end: line(2, 23).end }, selectionRange: line(1, 14), children: [section] };
+    expect(toDocumentSymbol(timepoint).children).toEqual([toDocumentSymbol(section)]);
   });
 });

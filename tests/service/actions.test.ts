@@ -62,6 +62,20 @@ describe('fixes of findings', () => {
     expect(after(note('vitals hr 80,|, rr 18'), 'Remove the extra comma')).toBe('vitals hr 80, rr 18');
   });
 
+  it('offers a fix that two findings of a selection share once, resolving both (not the same entry twice in the menu)', () => {
+    // The IPAP and the EPAP beside `hfnc` are each reported (PN318), each fixed by naming the device `niv`.
+    const { text, list } = actions(note('@ 08:00', '|oxygen    hfnc 50 L/min, fio2 0.6, ipap 12, epap 6|'));
+    const niv = list.filter((a) => a.title === 'Change the device to `niv`');
+    expect(niv).toHaveLength(1);
+    expect(niv[0]!.findingCodes).toEqual(['PN318', 'PN318']);
+    expect(niv[0]!.resolves?.map((f) => f.range.start.character)).toEqual([35, 44]);
+    expect(applyEdits(text, niv[0]!.edits)).toBe(note('@ 08:00', 'oxygen    niv 50 L/min, fio2 0.6, ipap 12, epap 6'));
+    // Fixes that differ keep an entry each, even under one title: the unusual blanks of one line.
+    const blanks = actions('vitals\u00a0hr 80,\u2009|rr 18|').list.filter((a) => a.title === 'Write a plain space');
+    expect(blanks.length).toBeGreaterThanOrEqual(1);
+    expect(new Set(blanks.map((a) => JSON.stringify(a.edits))).size).toBe(blanks.length);
+  });
+
   it('offers nothing from findings the range does not touch', () => {
     const { list } = actions(note('abg ph 7,35', 'vitals h|r 80'));
     expect(list.filter((a) => a.kind === 'quickfix' && a.findingCodes?.includes('PN103'))).toEqual([]);

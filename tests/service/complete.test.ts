@@ -320,6 +320,20 @@ describe('right before a word', () => {
     expect(applyEdits(text, [{ range: hr!.replace!, newText: hr!.insertText }])).toBe('vitals    hr 118');
   });
 
+  it('offers no line snippet in front of a section word: the line after it would become a label or a broken gas', () => {
+    // `@ HH:MM  label vitals hr 80` would make the values part of the new timepoint's label, read as prose.
+    const { text, result, position } = noteAt('@ 08:00\n|vitals    hr 80');
+    const items = completionsAt(result, position);
+    expect(items.filter((c) => c.kind === 'snippet')).toEqual([]);
+    // Another section word takes its place (the same kind of thing), keeping the values.
+    const abg = items.find((c) => c.label === 'abg');
+    expect(applyEdits(text, [{ range: abg!.replace!, newText: abg!.insertText }])).toBe('@ 08:00\nabg    hr 80');
+    expect(complete('|vent mode VC').filter((c) => c.kind === 'snippet')).toEqual([]);
+    // In front of anything else at the start of a line, or on a blank line, the snippets stay.
+    expect(complete('|').filter((c) => c.kind === 'snippet')).toHaveLength(5);
+    expect(complete('|hello there').filter((c) => c.kind === 'snippet')).toHaveLength(5);
+  });
+
   it('offers nothing in front of a timepoint, or in front of its time or in place of part of it', () => {
     for (const marked of ['|@ day 1 08:00  arrival', '|@', '@ |day 1 08:00', '@ d|ay 1 08:00', '@ day 1 |08:00', '@ |08:00  arrival', '@ |+2h']) {
       expect(complete(marked), marked).toEqual([]);

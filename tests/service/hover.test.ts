@@ -87,6 +87,22 @@ describe('hover on a key, value or unit', () => {
     expect(md).toContain('**9.5 kPa** = 71 mmHg');
   });
 
+  it('names both pressures on the unit written after a shorthand gas, which applies to both', () => {
+    // 6.4 kPa = 48 mmHg, 9.3 kPa = 69.8 mmHg (1 kPa = 7.50062 mmHg).
+    const h = hover('@ 08:00\nabg 7.30/6.4/9.3/23 k|Pa');
+    expect(h?.range).toEqual({ start: { line: 1, character: 20 }, end: { line: 1, character: 23 } });
+    expect(h?.markdown).toContain('**`kPa`** — the unit of the shorthand gas on this `abg` line, for both its pressures');
+    expect(h?.markdown).toContain('- PaCO2: **6.4 kPa** = 48 mmHg');
+    expect(h?.markdown).toContain('- PaO2: **9.3 kPa** = 70 mmHg');
+    expect(h?.markdown).not.toContain('the second number');
+    endsWithCaution(h!.markdown);
+    // On the numbers, each its own field as before.
+    expect(markdown('@ 08:00\nabg 7.30/6.|4/9.3/23 kPa')).toContain('**PaCO2** — the second number of the shorthand gas');
+    expect(markdown('@ 08:00\nabg 7.30/6.4/9.|3/23 kPa')).toContain('**PaO2** — the third number of the shorthand gas');
+    // A venous gas names its own pressures.
+    expect(markdown('@ 08:00\nvbg 7.30/50/40 mm|Hg')).toContain('- PvO2: **40 mmHg**');
+  });
+
   it('shows a stated value with at least the decimals it was written with', () => {
     // The finding quotes 7.5; the hover no longer rounds it to 8 (7.5 mmHg = 1.0 kPa).
     const pco2 = markdown('abg pco2 7.|5');

@@ -1,7 +1,7 @@
 // The outline (timepoints, a header, section lines) and folding ranges.
 import { describe, expect, it } from 'vitest';
 import { checkNote } from '../../server/src/core/check-note';
-import { documentSymbols, foldingRanges, type SymbolInfo } from '../../server/src/core/service';
+import { documentSymbols, foldingRanges, OUTLINE_SECTION_LINES, type SymbolInfo } from '../../server/src/core/service';
 import { note } from './cursor';
 
 const text = note(
@@ -77,6 +77,35 @@ describe('documentSymbols', () => {
     expect(documentSymbols(checkNote(text.replace(/\n/g, '\r\n'))).map(shape)).toEqual(symbols.map(shape));
     expect(documentSymbols(checkNote(''))).toEqual([]);
     expect(documentSymbols(checkNote('# only a comment\n\n'))).toEqual([]);
+  });
+});
+
+describe('the outline of a very long note', () => {
+  /** A note of `timepoints` timepoints of `perTimepoint` section lines each, after a header line. */
+  const long = (timepoints: number, perTimepoint: number): string => {
+    const lines = ['patient   age 61 y'];
+    for (let i = 0; i < timepoints; i++) {
+      lines.push(`@ +${i}h  hour ${i + 1}`);
+      for (let j = 0; j < perTimepoint; j++) lines.push(j % 2 === 0 ? `vitals    hr ${70 + (i % 20)}` : 'note      settled');
+    }
+    return lines.join('\n');
+  };
+
+  it('lists the section lines while the note has at most OUTLINE_SECTION_LINES of them', () => {
+    // The header's line counts: without the last line, the note holds exactly the limit.
+    const text = long(OUTLINE_SECTION_LINES / 5, 5);
+    const symbols = documentSymbols(checkNote(text.slice(0, text.lastIndexOf('\n'))));
+    expect(symbols.reduce((n, s) => n + s.children.length, 0)).toBe(OUTLINE_SECTION_LINES);
+  });
+
+  it('lists only the timepoints (and the header) past that, each spanning the same lines', () => {
+    const text = long(OUTLINE_SECTION_LINES / 5, 5);
+    const symbols = documentSymbols(checkNote(text));
+    expect(symbols).toHaveLength(1 + OUTLINE_SECTION_LINES / 5);
+    expect(symbols.every((s) => s.children.length === 0)).toBe(true);
+    expect(symbols.slice(0, 3).map((s) => [s.name, s.detail, s.range.start.line, s.range.end.line])).toEqual([
+      ['header', 'patient', 0, 0], ['hour 1', '+0h (day 1, 00:00)', 1, 6], ['hour 2', '+1h (day 1, 01:00)', 7, 12],
+    ]);
   });
 });
 

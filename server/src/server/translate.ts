@@ -183,15 +183,21 @@ const SYMBOL_KIND: Readonly<Record<SymbolInfo['kind'], SymbolKind>> = {
   section: SymbolKind.Field,
 };
 
+/**
+ * A symbol of the outline. `children` (optional in the protocol) is left out when there are none:
+ * a section line has none, and in the outline of a big note neither has a timepoint, so it would be
+ * `"children":[]` thousands of times over.
+ */
 export function toDocumentSymbol(s: SymbolInfo): DocumentSymbol {
-  return {
+  const symbol: DocumentSymbol = {
     name: s.name || ' ',
     detail: s.detail,
     kind: SYMBOL_KIND[s.kind],
     range: s.range,
     selectionRange: s.selectionRange,
-    children: s.children.map(toDocumentSymbol),
   };
+  if (s.children.length > 0) symbol.children = s.children.map(toDocumentSymbol);
+  return symbol;
 }
 
 export function rangesOverlap(a: Range, b: Range): boolean {

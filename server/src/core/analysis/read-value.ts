@@ -638,6 +638,11 @@ function unitNotAllowedIssue(item: ItemNode, field: FieldDef, line: number, cand
   const possible = written === null ? [] : unitsWithin(field, written, null, field.hard).map((u) => displayUnit(u.id));
   const offered = possible.length > 0 ? possible : allowed;
   const fixes: LineFix[] = offered.map((u) => ({ title: `Change to ${u}`, edits: [{ span: unit.span, newText: u }] }));
+  const converted = convertedFix(item, field, candidates, written);
+  if (converted) {
+    if (converted.first) fixes.unshift(converted.fix);
+    else fixes.push(converted.fix);
+  }
   const fio2 = asFio2(item, candidates, written, lineItems);
   if (fio2) fixes.unshift(fio2);
   return {
@@ -646,6 +651,44 @@ function unitNotAllowedIssue(item: ItemNode, field: FieldDef, line: number, cand
     span: unit.span,
     message: `${field.label} is not measured in ${candidates[0] ? displayUnit(candidates[0].id) : unit.text}; it takes ${wordList(allowed, 'or')}.`,
     fixes,
+  };
+}
+
+/** Dimensions whose units convert the same whatever is measured (not concentrations, read by a molar mass). */
+const CONVERTS_ALIKE: ReadonlySet<string> = new Set(['gas-pressure', 'airway-pressure', 'rate', 'flow', 'volume', 'temperature', 'length', 'mass']);
+
+/**
+ * A value written in a unit of the field's kind that the field does not take (`map 12 kPa`, `bp
+ * 16/10.7 kPa`): the fix that keeps what was measured writes it converted to the field's unit
+ * (`map 90 mmHg`), where the converted number (both of a pair) is possible. `Change to mmHg` alone
+ * would read 12 mmHg. First (`first`) when the number as written would be unusual in the field's
+ * unit; after `Change to …` when it would be ordinary there (a unit typed by mistake: `map 93 kPa`
+ * is offered no conversion, 698 mmHg being impossible). Only where units convert by their
+ * definitions alone (CONVERTS_ALIKE): a concentration's units are read by one substance's molar
+ * mass (mg/dL is glucose's, mmol/L of haemoglobin Hb's), which would misread any other.
+ */
+function convertedFix(item: ItemNode, field: FieldDef, candidates: readonly UnitDef[], written: number | null): { fix: LineFix; first: boolean } | null {
+  const value = item.value;
+  const from = candidates.find((u) => u.dimension === field.dimension && CONVERTS_ALIKE.has(u.dimension));
+  const to = field.unit ? unitById(field.unit) : undefined;
+  if (!value || !from || !to || from === to) return null;
+  const numbers = written !== null ? [written] : value.kind === 'pair' ? pairNumbers(value as PairValue) : [];
+  if (numbers.length === 0) return null;
+  const texts: string[] = [];
+  let ordinaryAsWritten = true;
+  let ordinaryConverted = true;
+  for (const n of numbers) {
+    const c = convert(n, from, to);
+    if (c === null || !within(c, field.hard)) return null;
+    texts.push(formatNumber(c, field.decimals));
+    if (!within(n, field.soft)) ordinaryAsWritten = false;
+    if (!within(c, field.soft)) ordinaryConverted = false;
+  }
+  const newValue = texts.join('/');
+  const unitText = displayUnit(to.id);
+  return {
+    fix: { title: `Convert to ${newValue} ${unitText}`, edits: [{ span: value.span, newText: newValue }, { span: item.unit!.span, newText: unitText }] },
+    first: !ordinaryAsWritten && ordinaryConverted,
   };
 }
 

@@ -169,9 +169,9 @@ export const unknownUnit = readCheck('PN202', 'unknown-unit', 'Unknown unit', 'e
 });
 
 export const unitNotAllowed = readCheck('PN203', 'unit-not-allowed', 'Unit not allowed for this field', 'error', ['units'], FORMAT_RULE, {
-  fires: 'The unit is known but measures something else (e.g. a rate in mmHg).',
+  fires: 'The unit is known but measures something else (e.g. a rate in mmHg), or is one the field is not written in (a blood pressure in kPa).',
   example: 'vitals hr 118 mmHg',
-  fix: 'Write a unit the field takes, or none. A percentage after an oxygen device (`mask 40 %`) is offered as the FiO2 it gives (`mask fio2 40 %`) before a flow in L/min; after `venturi` and `hfnc`, which are set by their FiO2, it is read as the FiO2 (PN323 says so after `hfnc`).',
+  fix: 'Write a unit the field takes, or none. A value written in a unit of the field\'s kind that the field does not take (`map 12 kPa`, `hr 1.2 Hz`) is offered converted (`map 90 mmHg`, `hr 72 /min`; a blood pressure both its numbers) where the result is possible, first where the number as written would be unusual in the field\'s unit and the converted one is not; a concentration never is (its units are read by one substance\'s molar mass). A percentage after an oxygen device (`mask 40 %`) is offered as the FiO2 it gives (`mask fio2 40 %`) before a flow in L/min; after `venturi` and `hfnc`, which are set by their FiO2, it is read as the FiO2 (PN323 says so after `hfnc`).',
 });
 
 export const otherUnitLikely = readCheck('PN204', 'other-unit-likely', 'Value reads as another unit', 'warning', ['units', 'plausibility'], 'common practice, no source: the soft bounds of the field registry, widened for PaO2 and PaCO2 (our convention)', {

@@ -68,13 +68,24 @@ export function codeActions(result: NoteResult, range: Range): ActionInfo[] {
   if (!isValidPosition(range.start) || !isValidPosition(range.end) || comparePositions(range.start, range.end) > 0) return [];
   const actions: ActionInfo[] = [];
 
-  // (a) fixes of the findings here
+  // (a) fixes of the findings here; a fix that several of them share (the IPAP and the EPAP beside
+  // `hfnc` both fixed by naming the device `niv`) is offered once, resolving them all
   const checks = new FixChecks(result);
+  const quickFixes: { action: ActionInfo & { findingCodes: string[]; resolves: Finding[] }; edits: string }[] = [];
   for (const f of result.findings) {
     if (!touches(f.range, range)) continue;
     for (const fix of f.fixes) {
       if (!checks.keeps(fix)) continue;
-      actions.push({ title: fix.title, kind: 'quickfix', edits: [...fix.edits], findingCodes: [f.code], resolves: [f], ...(fix.preferred ? { preferred: true } : {}) });
+      const edits = JSON.stringify(fix.edits);
+      const same = quickFixes.find((q) => q.action.title === fix.title && q.edits === edits);
+      if (same) {
+        same.action.findingCodes.push(f.code);
+        same.action.resolves.push(f);
+        continue;
+      }
+      const action = { title: fix.title, kind: 'quickfix' as const, edits: [...fix.edits], findingCodes: [f.code], resolves: [f], ...(fix.preferred ? { preferred: true } : {}) };
+      quickFixes.push({ action, edits });
+      actions.push(action);
     }
   }
 

@@ -15,7 +15,7 @@
  * Completions are narrowed to those whose label starts with the text typed before the cursor, and
  * replace the whole word under the cursor (the part after it too: `sp|2` becomes `spo2`). Nothing
  * is offered where it would break what follows the cursor: in front of a number, a unit, a
- * timepoint's `@` or its time.
+ * timepoint's `@` or its time; and no snippet of a whole line in front of a section word.
  */
 import type { NoteResult } from '../check-note';
 import { deviceOfLine, displayUnit } from '../analysis/read-value';
@@ -209,7 +209,9 @@ function roleAt(node: LineNode, ch: number): Role | null {
  * the word stays (`hr 80 /min rr 18`, never `hr 80 /min 18`). Before a number, a unit or the `@`
  * of a timepoint nothing else is offered: whatever went in front would take the number for its
  * own (`oxygen cannula fio2 2`), part a unit from its number (`peep 8 rate cmH2O`) or turn the
- * timepoint into another line.
+ * timepoint into another line. Nor is a snippet of a whole line offered in front of a section word:
+ * the line would be read into the snippet's (`@ 08:00  label vitals hr 80`: the values become the
+ * new timepoint's label, prose that nothing reports).
  */
 function keepNextWord(node: LineNode, ch: number, items: CompletionInfo[]): CompletionInfo[] {
   let role: Role | null | undefined;
@@ -219,7 +221,7 @@ function keepNextWord(node: LineNode, ch: number, items: CompletionInfo[]): Comp
     if (!r || r.start.character !== ch || r.end.character <= ch) { out.push(c); continue; }
     role ??= roleAt(node, ch);
     if (role !== null && ROLE_OF_KIND[c.kind] === role) out.push(c);
-    else if (role !== 'number' && role !== 'unit' && role !== 'timepoint') out.push({ ...c, insertText: `${c.insertText} `, replace: lineRange(r.start.line, ch, ch) });
+    else if (role !== 'number' && role !== 'unit' && role !== 'timepoint' && !(role === 'section' && c.kind === 'snippet')) out.push({ ...c, insertText: `${c.insertText} `, replace: lineRange(r.start.line, ch, ch) });
   }
   return out;
 }

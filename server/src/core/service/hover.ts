@@ -47,7 +47,7 @@ export function hoverAt(result: NoteResult, position: Position): HoverInfo | nul
   }
   const hit = itemAt(node, ch);
   if (!hit) return null;
-  const markdown = fieldMarkdown(result, node, hit);
+  const markdown = hit.part === 'unit' && hit.item.implied === 'shorthand' ? shorthandUnitMarkdown(result, node, hit) : fieldMarkdown(result, node, hit);
   return markdown ? { range: lineRange(node.line, hit.span.start, hit.span.end), markdown } : null;
 }
 
@@ -118,6 +118,22 @@ function sourceTitle(source: string): string {
   return cut < 0 ? source : source.slice(0, cut);
 }
 
+/**
+ * The unit written after a shorthand gas (`abg 7.30/6.4/9.3/23 kPa`) belongs to both its
+ * pressures: each with its value as read, rather than the first of them alone.
+ */
+function shorthandUnitMarkdown(result: NoteResult, node: SectionLine, hit: ItemHit): string {
+  const values: string[] = [];
+  for (const item of node.items) {
+    if (item.implied !== 'shorthand' || item.unit?.span.start !== hit.span.start) continue;
+    const field = fieldFor(node.section, item.keyName);
+    const stated = statedOf(result, node.line, item);
+    if (!field || !stated) continue;
+    values.push(`- ${escapeMarkdown(field.label)}: ${shownValue(stated, showsKpaOnLine(result, stated.line))}`);
+  }
+  return paragraphs([`**${code(hit.item.unit?.text ?? '')}** — the unit of the shorthand gas on this ${code(node.section)} line, for both its pressures`, values.join('\n'), cautionLine()]);
+}
+
 function shorthandPosition(key: string): string {
   return key === 'ph' ? 'first' : key === 'pco2' ? 'second' : key === 'po2' ? 'third' : 'fourth';
 }
@@ -132,14 +148,19 @@ function alternativeText(s: StatedValue): string | null {
  * timepoint or on a header line), a gas pressure in kPa first: `Value: **9.5 kPa** = 71 mmHg`.
  */
 function valueText(s: StatedValue, kpaFirst: boolean): string {
-  if (s.word !== null) return `Value: **${escapeMarkdown(s.word)}**`;
-  if (s.value === null && !s.parts) return `Value: ${code(s.item.value?.text ?? '')} (not read)`;
+  return `Value: ${shownValue(s, kpaFirst)}`;
+}
+
+/** The value of `valueText`: `**71 mmHg** = 9.5 kPa`. */
+function shownValue(s: StatedValue, kpaFirst: boolean): string {
+  if (s.word !== null) return `**${escapeMarkdown(s.word)}**`;
+  if (s.value === null && !s.parts) return `${code(s.item.value?.text ?? '')} (not read)`;
   const kpa = kpaFirst ? statedInKpa(s) : null;
-  if (kpa) return `Value: **${escapeMarkdown(kpa)}** = ${escapeMarkdown(formatStated(s))}`;
+  if (kpa) return `**${escapeMarkdown(kpa)}** = ${escapeMarkdown(formatStated(s))}`;
   const shown = formatStated(s);
   const alt = alternativeText(s);
   const asFraction = s.unit === 'fraction' ? ' (a fraction)' : '';
-  return `Value: **${escapeMarkdown(shown)}**${asFraction}${alt ? ` = ${escapeMarkdown(alt)}` : ''}`;
+  return `**${escapeMarkdown(shown)}**${asFraction}${alt ? ` = ${escapeMarkdown(alt)}` : ''}`;
 }
 
 function unitText(result: NoteResult, s: StatedValue, field: FieldDef): string | null {

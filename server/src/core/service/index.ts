@@ -19,4 +19,4 @@ export { inlayHints, inlayHintSteps, acidBaseLabel, carriedInputs, CARRIED_MARK,
 export { completionsAt } from './complete';
 export { codeActions, codeActionSteps, keepsValues } from './actions';
 export { convertNoteUnits, convertNoteUnitSteps, type GasUnit } from './unit-conversion';
-export { documentSymbols, documentSymbolSteps, foldingRanges } from './symbols';
+export { documentSymbols, documentSymbolSteps, foldingRanges, OUTLINE_SECTION_LINES } from './symbols';

@@ -6,6 +6,12 @@
  * its section lines as children. Lines before the first timepoint that describe the patient, the
  * place and the units form a "header" symbol. Each timepoint spanning more than one line folds, and so
  * does each `# region` … `# endregion` pair of comment lines.
+ *
+ * A note of more than OUTLINE_SECTION_LINES section lines (a thousand hourly timepoints and more) is
+ * outlined by its timepoints and header alone, each with its name, time and lines as always but
+ * without its section lines: past that, the section lines were three quarters of the answer (about
+ * 10 MB for a note of 50,000 lines, which held the server while it was written) and a list of tens
+ * of thousands of `vitals` and `abg` entries that nobody scrolls through; the lines stay one fold away.
  */
 import type { NoteResult } from '../check-note';
 import type { Timepoint } from '../analysis/model';
@@ -15,6 +21,18 @@ import { clockText, unreadTime, writtenTime } from './hover';
 import { contentEnd, contentStart } from './locate';
 import type { FoldingRangeInfo, SymbolInfo } from './types';
 import { ITEMS_PER_STEP, runSteps, type Steps } from '../util/steps';
+
+/** The most section lines an outline lists (see the header of this file). */
+export const OUTLINE_SECTION_LINES = 5000;
+
+/** Whether the outline lists the note's section lines: it has at most OUTLINE_SECTION_LINES of them. */
+function listsSectionLines(lines: readonly LineNode[]): boolean {
+  let count = 0;
+  for (let i = 0; i < lines.length; i++) {
+    if (lines[i]!.kind === 'section' && ++count > OUTLINE_SECTION_LINES) return false;
+  }
+  return true;
+}
 
 function isContent(node: LineNode): boolean {
   return node.kind === 'section' || node.kind === 'timepoint' || node.kind === 'unknown';
@@ -91,6 +109,7 @@ export function* documentSymbolSteps(result: NoteResult): Steps<SymbolInfo[]> {
   const lines = result.analysis.tree.lines;
   const timepoints = result.analysis.timeline.timepoints;
   const symbols: SymbolInfo[] = [];
+  const withSections = listsSectionLines(lines);
 
   const { implicitStart, header } = headerOf(result);
   if (header) {
@@ -100,7 +119,7 @@ export function* documentSymbolSteps(result: NoteResult): Steps<SymbolInfo[]> {
       kind: 'header',
       range: wholeLines(lines, header.start, header.end),
       selectionRange: wholeLines(lines, header.start, header.start),
-      children: header.lines.map(sectionSymbol),
+      children: withSections ? header.lines.map(sectionSymbol) : [],
     });
   }
 
@@ -110,7 +129,7 @@ export function* documentSymbolSteps(result: NoteResult): Steps<SymbolInfo[]> {
     const start = tp.line ?? implicitStart ?? tp.startLine;
     const end = lastFilledLine(lines, start, Math.max(start, tp.endLine));
     const children: SymbolInfo[] = [];
-    for (let i = start; i <= end; i++) {
+    for (let i = start; withSections && i <= end; i++) {
       const node = lines[i];
       if (node?.kind === 'section') children.push(sectionSymbol(node));
     }
