@@ -6,6 +6,8 @@
 // practice, no source). Hypoxaemia PaO2 < 60 mmHg, hypercapnia PaCO2 > 50 mmHg (common practice, no
 // source). Low inspired oxygen: PiO2 below 140 mmHg (Pneumark's convention, interpret.ts).
 import { describe, expect, it } from 'vitest';
+import { readFileSync } from 'node:fs';
+import type { Settings } from '../../server/src/core/settings';
 import { derivation, derived, readings } from './helpers';
 
 const at = (pb: number, gas: string) => `patient age 40 y\nplace barometric ${pb} mmHg\n@ 08:00\noxygen room air\n${gas}`;
@@ -78,39 +80,96 @@ describe('a place stated but not usable', () => {
   });
 });
 
-describe('P/F adjusted for altitude: from 740 mmHg down', () => {
-  // P/F × PB ÷ 760 (ARDS Definition Task Force, JAMA 2012;307:2526–2533, from memory); it starts
-  // below 740 mmHg (Pneumark's convention: weather moves sea-level pressure by about 20 mmHg either
-  // way, common practice, no source). PaO2 90 on FiO2 0.4: P/F 225.
-  const vent = (pb: number) => `place barometric ${pb} mmHg\n@ 08:00\nvent mode vc, peep 8, fio2 0.4\nabg 7.38/42/90/24`;
+describe('P/F adjusted for altitude: above 1,000 m, as the Berlin definition asks', () => {
+  // P/F × PB ÷ 760 "if altitude is higher than 1,000 m" (ARDS Definition Task Force, Acute respiratory
+  // distress syndrome: the Berlin Definition, JAMA 2012;307:2526–2533: read in the footnote of its
+  // table as reproduced in Crit Care 2012 cc11867, Table 1, and in PMC8450703, Table 1; the JAMA text
+  // itself not read). Where the note states only a pressure, 1,000 m is the pressure West's model
+  // atmosphere gives there, exp(6.63268 − 0.1112 − 0.00149) = 678.57 mmHg, taken to a tenth: 678.6
+  // (West JB, J Appl Physiol 1996;81:1850–1854, from memory), whichever model the setting chooses.
+  // PaO2 84 on FiO2 0.4: P/F 210, in the 200–300 mmHg band; adjusted at PB 670 it would be 185.
+  const vent = (place: string) => `place ${place}\n@ 08:00\nvent mode vc, peep 8, fio2 0.4\nabg 7.38/42/84/24`;
+  const pb = (mmhg: number) => vent(`barometric ${mmhg} mmHg`);
+  const alt = (m: number) => vent(`altitude ${m} m`);
+  const notApplied = (text: string, settings: Partial<Settings> = {}) => derivation(text, settings).notApplicable.find((n) => n.id === 'pf_ratio_altitude_adjusted');
+  const band = (text: string, settings: Partial<Settings> = {}) => readings(text, settings)['oxygenation-band'];
+  const NEAR = "barometric pressure is 678.6 mmHg or more, near sea level or up to 1,000 m by West's model atmosphere: the Berlin definition makes no altitude adjustment there (it adjusts above 1,000 m)";
+  const LOW_ALTITUDE = 'the altitude is 1,000 m or less: the Berlin definition makes no altitude adjustment there (it adjusts above 1,000 m)';
 
-  const notApplied = (pb: number) => derivation(vent(pb)).notApplicable.find((n) => n.id === 'pf_ratio_altitude_adjusted');
-
-  it('at 741 mmHg it is not applicable, and the reason names the threshold', () => {
-    expect(notApplied(741)?.reason).toBe('barometric pressure is 740 mmHg or more, close to sea level (the adjustment starts below 740 mmHg)');
+  it('at PB 700 mmHg (about 800 m) there is no adjustment, and the band is that of the plain P/F (Berlin, read)', () => {
+    // Before: 210 × 700 ÷ 760 = 193.4, the 100–200 band, a band lower than the definition's own.
+    expect(notApplied(pb(700))?.reason).toBe(NEAR);
+    expect(band(pb(700))).toMatch(/^P\/F 210 mmHg with PEEP 8 cmH2O: .*200–300/);
+    expect(band(pb(700))).not.toMatch(/adjusted/);
   });
 
-  it('in a hyperbaric chamber (PB 2,280 mmHg, 3 atmospheres) it is not applied either, and the reason does not call it close to sea level', () => {
-    expect(notApplied(2280)?.reason).toBe("barometric pressure is above sea level's (760 mmHg): the adjustment is for altitude, below 740 mmHg");
-    // Within the weather's 20 mmHg of sea level it is close to sea level (common practice, no source).
-    expect(notApplied(780)?.reason).toMatch(/close to sea level/);
+  it('at PB 670 mmHg it is 210 × 670 ÷ 760 = 185.1, and the band uses it (Berlin, read)', () => {
+    expect(derived(pb(670), 'pf_ratio_altitude_adjusted').value).toBeCloseTo(185.13, 2);
+    expect(band(pb(670))).toMatch(/^P\/F 185 mmHg \(adjusted for altitude\) with PEEP 8 cmH2O: .*100–200/);
   });
 
-  it('at 740 mmHg, on the threshold, it is still not applied', () => {
-    expect(notApplied(740)).toBeDefined();
-    expect(notApplied(739)).toBeUndefined();
+  it("at 1,200 m it is adjusted by either model's pressure (West 663.2, standard 657.9 mmHg; both from memory)", () => {
+    expect(derived(alt(1200), 'pf_ratio_altitude_adjusted').value).toBeCloseTo((210 * 663.2118) / 760, 2); // 183.26
+    expect(derived(alt(1200), 'pf_ratio_altitude_adjusted', { barometricModel: 'standard' }).value).toBeCloseTo((210 * 657.9389) / 760, 2); // 181.80
+    expect(band(alt(1200))).toMatch(/^P\/F 183 mmHg \(adjusted for altitude\)/);
   });
 
-  it('at 739 mmHg it is 225 × 739 ÷ 760 = 218.8, and the oxygenation band uses it', () => {
-    expect(derived(vent(739), 'pf_ratio_altitude_adjusted').value).toBeCloseTo(218.78, 1);
-    expect(readings(vent(739))['oxygenation-band']).toMatch(/219/);
-    expect(readings(vent(741))['oxygenation-band']).toMatch(/^P\/F 225 mmHg/);
+  it('at 800 m it is not adjusted under either model, and the reason names the altitude (Berlin, read)', () => {
+    for (const barometricModel of ['west', 'standard'] as const) {
+      expect(notApplied(alt(800), { barometricModel })?.reason).toBe(LOW_ALTITUDE);
+      expect(band(alt(800), { barometricModel })).toMatch(/^P\/F 210 mmHg with/);
+    }
+  });
+
+  it('on the boundary: 1,000 m is not above 1,000 m, 1,001 m is (Berlin, read)', () => {
+    expect(notApplied(alt(1000))?.reason).toBe(LOW_ALTITUDE);
+    expect(notApplied(alt(1000), { barometricModel: 'standard' })?.reason).toBe(LOW_ALTITUDE);
+    expect(derived(alt(1001), 'pf_ratio_altitude_adjusted').value).toBeLessThan(210);
+  });
+
+  it("a pressure alone: 678.6 mmHg, West's 1,000 m, is not adjusted, 678.5 is (West 1996, from memory)", () => {
+    expect(notApplied(pb(678.6))?.reason).toBe(NEAR);
+    expect(derived(pb(678.5), 'pf_ratio_altitude_adjusted').value).toBeCloseTo((210 * 678.5) / 760, 2);
+  });
+
+  it('a pressure alone reads the same whichever model the setting chooses: the model converts no altitude there', () => {
+    // 676 mmHg is about 1,020 m by West's model and about 980 m by the standard atmosphere (674.1 mmHg at 1,000 m).
+    for (const barometricModel of ['west', 'standard'] as const) {
+      expect(derived(pb(676), 'pf_ratio_altitude_adjusted', { barometricModel }).value).toBeCloseTo((210 * 676) / 760, 2);
+      expect(notApplied(pb(690), { barometricModel })?.reason).toBe(NEAR);
+    }
+  });
+
+  it('an altitude with a pressure that fits it (no PN320): the altitude decides, the pressure stated is the one used', () => {
+    // 1,050 m with 680 mmHg: above 1,000 m, so adjusted, by 680 ÷ 760: 187.9.
+    expect(derived(vent('altitude 1050 m, barometric 680 mmHg'), 'pf_ratio_altitude_adjusted').value).toBeCloseTo((210 * 680) / 760, 2);
+    // 950 m with 676 mmHg: not above 1,000 m, so not adjusted though the pressure is below 678.6.
+    expect(notApplied(vent('altitude 950 m, barometric 676 mmHg'))?.reason).toBe(LOW_ALTITUDE);
+  });
+
+  it('an altitude the pressure beside it contradicts (PN320: the altitude is not used): the pressure decides', () => {
+    expect(notApplied(vent('altitude 2000 m, barometric 700 mmHg'))?.reason).toBe(NEAR);
+    expect(derived(vent('altitude 0 m, barometric 600 mmHg'), 'pf_ratio_altitude_adjusted').value).toBeCloseTo((210 * 600) / 760, 2);
+  });
+
+  it('in a hyperbaric chamber (PB 2,280 mmHg, 3 atmospheres) it is not applied either, and the reason does not call it near sea level', () => {
+    expect(notApplied(pb(2280))?.reason).toBe("barometric pressure is above sea level's (760 mmHg): the adjustment is for altitude above 1,000 m, a pressure below 678.6 mmHg");
+    // Within the weather's 20 mmHg of sea level it is near sea level (common practice, no source).
+    expect(notApplied(pb(780))?.reason).toBe(NEAR);
+  });
+
+  it('the summit-hut sample is adjusted as before: 4,550 m and 1,200 m are both above 1,000 m', () => {
+    const text = readFileSync(new URL('../../samples/summit-hut-evacuation.pneu', import.meta.url), 'utf8');
+    // Room air at the hut: PaO2 33 ÷ 0.21 = 157.1; West's model at 4,550 m: 447.6 mmHg (from memory).
+    expect(derived(text, 'pf_ratio_altitude_adjusted', {}, 0).value).toBeCloseTo(((33 / 0.21) * Math.exp(6.63268 - 0.1112 * 4.55 - 0.00149 * 4.55 ** 2)) / 760, 2);
+    // Room air in the valley: PaO2 74 ÷ 0.21 = 352.4 at 1,200 m (663.2 mmHg): 307.5.
+    expect(derived(text, 'pf_ratio_altitude_adjusted', {}, 3).value).toBeCloseTo(((74 / 0.21) * 663.2118) / 760, 2);
   });
 });
 
 describe('what a note near sea level is asked to add', () => {
-  // The adjustment is not applied from 740 mmHg up (above), so adding an FiO2 there gives a P/F and
-  // no adjusted P/F: the request for an FiO2 must not promise one. At 2,000 m (West's model
+  // The adjustment is not applied at 1,000 m or below (above), so adding an FiO2 there gives a P/F
+  // and no adjusted P/F: the request for an FiO2 must not promise one. At 2,000 m (West's model
   // atmosphere, PB ≈ 604 mmHg: West JB, J Appl Physiol 1996, from memory) it does give one.
   const cannula = (place: string) => `${place}@ 08:00\noxygen cannula 2\nabg 7.40/40/80/24`;
   const asked = (text: string) => derivation(text).missing.filter((m) => m.id === 'pf_ratio_altitude_adjusted');
@@ -119,7 +178,7 @@ describe('what a note near sea level is asked to add', () => {
     for (const text of [cannula(''), cannula('place barometric 760 mmHg\n')]) {
       expect(asked(text)).toEqual([]);
       expect(derivation(text).missing.find((m) => m.id === 'pf_ratio')?.needs).toEqual(["fio2 (a cannula's FiO2 is only an estimate)"]);
-      expect(derivation(text).notApplicable.find((n) => n.id === 'pf_ratio_altitude_adjusted')?.reason).toMatch(/close to sea level/);
+      expect(derivation(text).notApplicable.find((n) => n.id === 'pf_ratio_altitude_adjusted')?.reason).toMatch(/near sea level/);
     }
   });
 

@@ -8,18 +8,12 @@
  */
 import type { StatedValue } from '../analysis/model';
 import { displayUnit } from '../analysis/read-value';
+import { PLACE_PRESSURE_MARGIN, pressureFitsAltitude } from '../derive/atmosphere';
 import { SOURCES, barometricFromAltitudeStandard, barometricFromAltitudeWest } from '../physiology/atmosphere';
 import { KPA_DECIMALS, kpaFromMmhg } from '../present';
 import { toRange } from '../syntax/tree';
 import { formatAgainst, formatNumber } from '../util/format';
 import { defineCheck, type CheckContext } from './check';
-
-/**
- * How far (a fraction) a stated pressure may lie outside the span of the two models' pressures
- * at the stated altitude before it is reported: weather and season move the pressure at one place
- * by a few percent (Pneumark's own convention, no source).
- */
-export const PLACE_PRESSURE_MARGIN = 0.05;
 
 export const placePressureUnlikeAltitude = defineCheck({
   code: 'PN320',
@@ -52,14 +46,13 @@ function compare(ctx: CheckContext, pressure: StatedValue, stated: readonly Stat
     const s = stated[i]!;
     if (s.fieldId === 'altitude' && s.line === pressure.line && s.usable && s.value !== null) altitude = s;
   }
-  if (altitude === null) return;
+  if (altitude === null || pressureFitsAltitude(pressure.value, altitude.value!)) return;
   const west = barometricFromAltitudeWest(altitude.value!);
   const standard = barometricFromAltitudeStandard(altitude.value!);
   if (west === null || standard === null) return;
   const low = Math.min(west, standard);
   const high = Math.max(west, standard);
   const pb = pressure.value;
-  if (pb >= low * (1 - PLACE_PRESSURE_MARGIN) && pb <= high * (1 + PLACE_PRESSURE_MARGIN)) return;
   const inKpa = pressure.readUnit === 'kPa';
   const pbShown = inKpa
     ? `${formatNumber(kpaFromMmhg(pb), KPA_DECIMALS)} kPa (${formatNumber(pb, 0)} mmHg)`

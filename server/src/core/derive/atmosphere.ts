@@ -6,6 +6,26 @@ import { defineDerived, type DeriveContext, type Outcome, type Term, type ValueE
 
 export const SEA_LEVEL_MMHG = 760;
 
+/**
+ * How far (a fraction) a pressure stated beside an altitude may lie outside the span of the two
+ * model atmospheres' pressures at that altitude and still belong to it: weather and season move
+ * the pressure at one place by a few percent (Pneumark's own convention, no source).
+ */
+export const PLACE_PRESSURE_MARGIN = 0.05;
+
+/**
+ * Whether a pressure (mmHg) stated beside an altitude (m) can belong to it: within
+ * PLACE_PRESSURE_MARGIN of the span of West's model and the standard atmosphere there (true where
+ * either model gives none: nothing to compare with). PN320 reports one that cannot; the altitude
+ * beside it is then not used.
+ */
+export function pressureFitsAltitude(pbMmhg: number, altitudeM: number): boolean {
+  const west = barometricFromAltitudeWest(altitudeM);
+  const standard = barometricFromAltitudeStandard(altitudeM);
+  if (west === null || standard === null) return true;
+  return pbMmhg >= Math.min(west, standard) * (1 - PLACE_PRESSURE_MARGIN) && pbMmhg <= Math.max(west, standard) * (1 + PLACE_PRESSURE_MARGIN);
+}
+
 export const barometric = defineDerived({
   id: 'barometric',
   label: 'Barometric pressure',

@@ -13,12 +13,14 @@ import {
   oxygenationIndex,
   pfRatio,
   pfRatioAltitudeAdjusted,
+  BERLIN_ADJUSTED_ABOVE_M,
+  barometricFromAltitudeWest,
   roxIndex,
   sfRatio,
 } from '../physiology';
 import { ADULT_FROM_YEARS, defineDerived, withDecimals, type DeriveContext, type Outcome, type Term, type ValueExtras } from './context';
-import { decimalsAgainst, formatShort } from '../util/format';
-import { SEA_LEVEL_MMHG } from './atmosphere';
+import { decimalsAgainst, formatNumber, formatShort } from '../util/format';
+import { SEA_LEVEL_MMHG, pressureFitsAltitude } from './atmosphere';
 import type { Settings } from '../settings';
 
 /** PaO2 above alveolar PO2 by more than this (mmHg) is impossible rather than rounding. */
@@ -249,11 +251,12 @@ export const pfRatioAltitude = defineDerived({
   anchors: ['pao2'],
   compute(c) {
     const pb = c.derived('barometric', 'PB');
-    // Near sea level there is no adjustment, whatever the P/F: what the P/F lacks (an FiO2) is not
-    // asked for in its name, since adding it would give a P/F and still no adjusted one.
-    if (pb && pb.value >= PF_ADJUSTED_BELOW_MMHG) return pb.value > SEA_LEVEL_MMHG + 20 ? ABOVE_SEA_LEVEL : NEAR_SEA_LEVEL;
+    // At 1,000 m or below there is no adjustment, whatever the P/F: what the P/F lacks (an FiO2) is
+    // not asked for in its name, since adding it would give a P/F and still no adjusted one.
+    const notHere = notAdjustedAt(c, pb);
+    if (notHere !== null) return notHere;
     const pf = c.derived('pf_ratio', 'P/F');
-    // A P/F withheld (PN401) withholds its adjustment, where there would be one (below 740 mmHg).
+    // A P/F withheld (PN401) withholds its adjustment, where there would be one (above 1,000 m).
     const withheld = pf ? null : c.withheldFrom('pf_ratio');
     if (withheld) return pb ? withheld : c.missing();
     if (!pf || !pb) return c.missing([pf, c.lacking('pf_ratio')]);
@@ -262,22 +265,60 @@ export const pfRatioAltitude = defineDerived({
 });
 
 /**
- * The altitude adjustment starts below 740 mmHg, about 220 m in the standard atmosphere
- * (Pneumark's convention). Weather alone moves the pressure at sea level by some 20 mmHg either
- * way (common practice, no source), and adjusting for it would move a P/F across a band edge for no
- * clinical reason; the Berlin definition asks for the adjustment above 1,000 m (ARDS Definition
- * Task Force 2012, from memory), which this threshold includes.
+ * The Berlin definition adjusts the P/F for altitude where the altitude is higher than 1,000 m
+ * (`berlin-2012`, read in the footnote of its table as reproduced in Crit Care 2012), and only
+ * there: a P/F at 800 m (PB about 694 mmHg) is read against the bands as it is, as the definition
+ * reads it.
+ *
+ * Where the note states an altitude that is used, the altitude decides: alone (the pressure is
+ * then the model's, whichever the setting chooses: above 1,000 m in either model is below its own
+ * pressure at 1,000 m), or with a pressure beside it that can belong to it (the pressure stated is
+ * the one the P/F is multiplied by). An altitude that the pressure beside it contradicts (PN320) is
+ * not used, here as for PiO2: the pressure decides.
+ *
+ * Where only a pressure decides (stated, or sea level assumed), it is compared with
+ * PF_ADJUSTED_BELOW_MMHG, the pressure of 1,000 m in West's model atmosphere, the default, whatever
+ * the setting `barometricModel`: the setting chooses how an altitude becomes a pressure, and a note
+ * that states a pressure has no altitude to convert, so it reads the same under either model (the
+ * standard atmosphere gives 674.1 mmHg at 1,000 m, about 45 m away).
  */
-export const PF_ADJUSTED_BELOW_MMHG = SEA_LEVEL_MMHG - 20;
+function notAdjustedAt(c: DeriveContext, pb: Term | null): Outcome | null {
+  const altitude = c.number('altitude');
+  if (altitude !== null) {
+    const stated = c.number('barometric');
+    if (stated === null || pressureFitsAltitude(stated, altitude)) return altitude > BERLIN_ADJUSTED_ABOVE_M ? null : AT_OR_BELOW_1000_M;
+  }
+  if (pb === null || pb.value < PF_ADJUSTED_BELOW_MMHG) return null;
+  return pb.value > SEA_LEVEL_MMHG + WEATHER_MMHG ? ABOVE_SEA_LEVEL : NEAR_SEA_LEVEL;
+}
+
+/**
+ * The pressure (mmHg) of 1,000 m in West's model atmosphere, exp(6.63268 − 0.1112 − 0.00149) =
+ * 678.57, to a tenth, so that the number the reasons show is the one compared with: 678.6 mmHg
+ * (`west-1996`). A pressure below it is adjusted where no altitude decides.
+ */
+export const PF_ADJUSTED_BELOW_MMHG = Math.round(barometricFromAltitudeWest(BERLIN_ADJUSTED_ABOVE_M)! * 10) / 10;
+
+/**
+ * Weather alone moves the pressure at sea level by some 20 mmHg either way (common practice, no
+ * source): a pressure higher than sea level's by more is not "near sea level".
+ */
+const WEATHER_MMHG = 20;
+
+/** Why there is no adjustment, after where: said once for every gas. */
+const NO_ADJUSTMENT_THERE = 'the Berlin definition makes no altitude adjustment there (it adjusts above 1,000 m)';
 
 /** Most notes are near sea level: one outcome serves every gas. */
-const NEAR_SEA_LEVEL: Outcome = { kind: 'na', reason: `barometric pressure is ${PF_ADJUSTED_BELOW_MMHG} mmHg or more, close to sea level (the adjustment starts below ${PF_ADJUSTED_BELOW_MMHG} mmHg)` };
+const NEAR_SEA_LEVEL: Outcome = { kind: 'na', reason: `barometric pressure is ${formatNumber(PF_ADJUSTED_BELOW_MMHG, 1)} mmHg or more, near sea level or up to 1,000 m by West's model atmosphere: ${NO_ADJUSTMENT_THERE}` };
+
+/** An altitude stated at 1,000 m or below (and used): one outcome serves every gas. */
+const AT_OR_BELOW_1000_M: Outcome = { kind: 'na', reason: `the altitude is 1,000 m or less: ${NO_ADJUSTMENT_THERE}` };
 
 /**
  * Above sea level's pressure and the 20 mmHg the weather moves it (a hyperbaric chamber, a place
- * below sea level): not "close to sea level", and the adjustment is for altitude only.
+ * below sea level): not "near sea level", and the adjustment is for altitude only.
  */
-const ABOVE_SEA_LEVEL: Outcome = { kind: 'na', reason: `barometric pressure is above sea level's (${SEA_LEVEL_MMHG} mmHg): the adjustment is for altitude, below ${PF_ADJUSTED_BELOW_MMHG} mmHg` };
+const ABOVE_SEA_LEVEL: Outcome = { kind: 'na', reason: `barometric pressure is above sea level's (${SEA_LEVEL_MMHG} mmHg): the adjustment is for altitude above 1,000 m, a pressure below ${formatNumber(PF_ADJUSTED_BELOW_MMHG, 1)} mmHg` };
 
 export const sfRatioDef = defineDerived({
   id: 'sf_ratio',

@@ -42,6 +42,8 @@ export const SOURCES = Object.freeze({
 export const DEFAULT_RESPIRATORY_QUOTIENT = 0.8;
 /** Reference barometric pressure (mmHg) for the Berlin altitude adjustment of P/F. Source: `berlin-2012`. */
 export const SEA_LEVEL_PB_MMHG = 760;
+/** The Berlin definition adjusts the P/F for altitude where the altitude is higher than this (m). Source: `berlin-2012`. */
+export const BERLIN_ADJUSTED_ABOVE_M = 1000;
 /** Highest SpO2 (%) at which the oxygen saturation index is valid. Source: `palicc-2015`. */
 export const OSI_MAX_SPO2_PERCENT = 97;
 
