@@ -262,15 +262,18 @@ function spacedUnit(units, keys) {
   ];
 }
 
-/** A number with its unit: glued (`89%`, `38.4C`, `80mm Hg`) or after blanks (`89 %`). */
-function numberWithUnit(units, keys) {
+/**
+ * A number with its unit: glued (`89%`, `38.4C`, `80mm Hg`) or after blanks (`89 %`). The unit may
+ * be left out unless `required` (`8 L/min`: a Venturi mask's second number, which must have one).
+ */
+function numberWithUnit(units, keys, required = false) {
   return [
     cap(numeric, NUM),
     '(?:',
     cap('keyword.other.unit', units.glued), VALUE_END,
     '|', cap('keyword.other.unit.unknown', `[^\\s,#]${CHUNK_REST}`), VALUE_END,
     '|', spacedUnit(units, keys),
-    ')?',
+    required ? ')' : ')?',
   ];
 }
 
@@ -291,18 +294,6 @@ function highFlowNumbers(units, keys, percent) {
   ];
 }
 
-/** A number with its unit, which it must have (`8 L/min`, `8L/min`): a Venturi mask's second number. */
-function numberWithRequiredUnit(units, keys) {
-  return [
-    cap(numeric, NUM),
-    '(?:',
-    cap('keyword.other.unit', units.glued), VALUE_END,
-    '|', cap('keyword.other.unit.unknown', `[^\\s,#]${CHUNK_REST}`), VALUE_END,
-    '|', spacedUnit(units, keys),
-    ')',
-  ];
-}
-
 /**
  * A bare number after `venturi` that the parser reads as its FiO2 (`venturiNumberKey`): a fraction
  * above 0 up to 1, or one of the percentages of the Venturi settings, 24 to 60 (`VENTURI_PERCENT`
@@ -319,8 +310,8 @@ const VENTURI_BARE_FIO2 = '\\+?(?:0*\\.[0-9]*[1-9][0-9]*|0+,[0-9]*[1-9][0-9]*|0*
 function venturiNumbers(units, keys, percent) {
   const notPercent = `(?!${NUM}\\s*${percent}${VALUE_END})`;
   return [
-    '(?:', numberWithPercent(percent), '(?:\\s+', notPercent, numberWithRequiredUnit(units, keys), ')?',
-    '|', cap(numeric, VENTURI_BARE_FIO2), '\\s+', notPercent, numberWithRequiredUnit(units, keys),
+    '(?:', numberWithPercent(percent), '(?:\\s+', notPercent, numberWithUnit(units, keys, true), ')?',
+    '|', cap(numeric, VENTURI_BARE_FIO2), '\\s+', notPercent, numberWithUnit(units, keys, true),
     '|', `(?!${VENTURI_BARE_FIO2}${VALUE_END})`, numberWithUnit(units, keys), '\\s+', numberWithPercent(percent),
     '|', numberWithUnit(units, keys), ')',
   ];

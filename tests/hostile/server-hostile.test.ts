@@ -3,14 +3,12 @@
 // answering, never publish NaN, Infinity or undefined, and end on the newest text.
 import { join } from 'node:path';
 import fc from 'fast-check';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { anyText } from '../helpers/arbitraries';
-import { startClient, type LspClient } from '../server/lsp-client';
+import { serverForTests } from '../server/lsp-client';
 
 export const LSP_PROPERTY_RUNS = 150;
-let client: LspClient;
-beforeAll(async () => { client = await startClient(); });
-afterAll(async () => { await client?.close(); });
+const client = serverForTests();
 
 const BAD = /NaN|Infinity|undefined/;
 

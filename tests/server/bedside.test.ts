@@ -13,7 +13,7 @@
 // Replay a failing sequence with `BEDSIDE_SEED=N BEDSIDE_RUNS=1 npx vitest run tests/server/bedside.test.ts`.
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
 import { CancellationTokenSource, type Diagnostic, type Hover, type InlayHint, type Position, type TextEdit, LSPErrorCodes } from 'vscode-languageserver-protocol';
 import { checkNote } from '../../server/src/core/check-note';
 import { formatEdits } from '../../server/src/core/service/format';
@@ -22,15 +22,9 @@ import { shownEscaped } from '../../server/src/core/util/format';
 import { SUMMARY_REQUEST, TRENDS_REQUEST } from '../../server/src/protocol';
 import { generateNote } from '../bench/generate.mjs';
 import { rng } from '../helpers/seeded';
-import { errorCode, startClient, type LspClient } from './lsp-client';
+import { errorCode, serverForTests } from './lsp-client';
 
-let client: LspClient;
-beforeAll(async () => {
-  client = await startClient();
-});
-afterAll(async () => {
-  await client?.close();
-});
+const client = serverForTests();
 
 const path = (name: string) => join(process.cwd(), name);
 

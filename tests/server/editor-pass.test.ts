@@ -4,18 +4,12 @@
 // gas names both pressures; the outline's section lines come without an empty `children`.
 // (Found driving the server as an editor does: typing, pasting, undoing and asking at every step.)
 import { join } from 'node:path';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import type { CodeAction, CompletionItem, Diagnostic, DocumentSymbol, Hover, TextEdit } from 'vscode-languageserver-protocol';
 import { applyEdits } from '../../server/src/core/service/text-edits';
-import { startClient, type LspClient } from './lsp-client';
+import { serverForTests } from './lsp-client';
 
-let client: LspClient;
-beforeAll(async () => {
-  client = await startClient();
-});
-afterAll(async () => {
-  await client?.close();
-});
+const client = serverForTests();
 
 const path = (name: string) => join(process.cwd(), name);
 

@@ -5,18 +5,12 @@ import { mkdtempSync, unlinkSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { DiagnosticSeverity, type CodeAction, type CompletionItem, type Diagnostic, type FoldingRange, type InlayHint, type InsertReplaceEdit, type TextEdit } from 'vscode-languageserver-protocol';
 import { applyEdits } from '../../server/src/core/service/text-edits';
-import { startClient, type LspClient } from './lsp-client';
+import { serverForTests, startClient } from './lsp-client';
 
-let client: LspClient;
-beforeAll(async () => {
-  client = await startClient();
-});
-afterAll(async () => {
-  await client?.close();
-});
+const client = serverForTests();
 
 const codes = (diagnostics: readonly Diagnostic[]) => diagnostics.map((d) => String(d.code));
 const path = (name: string) => join(process.cwd(), name);

@@ -14,6 +14,7 @@ import {
   type PublishDiagnosticsParams,
   type InitializeResult,
 } from 'vscode-languageserver-protocol/node';
+import { afterAll, beforeAll } from 'vitest';
 import { ANALYSED_NOTIFICATION, type AnalysedParams } from '../../server/src/protocol';
 
 export interface LspClient {
@@ -217,6 +218,30 @@ export async function startClient(settings: Record<string, unknown> = {}, option
       return code;
     },
   }) as LspClient;
+}
+
+/**
+ * One server for a test file: started before its first test and shut down after its last. The
+ * client returned stands for the started one (each member is read from it, or set on it, when
+ * used), so the file's tests use it as they would the client itself.
+ */
+export function serverForTests(settings: Record<string, unknown> = {}, options: ClientOptions = {}): LspClient {
+  let started: LspClient | null = null;
+  beforeAll(async () => {
+    started = await startClient(settings, options);
+  });
+  afterAll(async () => {
+    await started?.close();
+  });
+  const client = (): LspClient => {
+    if (started === null) throw new Error('the server starts before the first test of the file');
+    return started;
+  };
+  return new Proxy({} as LspClient, {
+    get: (_target, member) => Reflect.get(client(), member),
+    // `client.settings = …`: what the server is answered when it asks for its configuration.
+    set: (_target, member, value) => Reflect.set(client(), member, value),
+  });
 }
 
 /** The code of InvalidRequest, the answer to a request after shutdown (LSP 3.17, "Shutdown Request"). */

@@ -4,23 +4,17 @@ import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
 import type { CodeAction, CompletionItem, Diagnostic, DocumentSymbol, FoldingRange, Hover, InlayHint, TextEdit } from 'vscode-languageserver-protocol';
 import { checkNote } from '../../server/src/core/check-note';
 import { applyEdits } from '../../server/src/core/service/text-edits';
 import { generateNote } from '../bench/generate.mjs';
-import { startClient, type LspClient } from './lsp-client';
+import { serverForTests, startClient } from './lsp-client';
 
 const icuPath = join(process.cwd(), 'samples/icu-ventilated-lung-injury.pneu');
 const icu = readFileSync(icuPath, 'utf8');
 
-let client: LspClient;
-beforeAll(async () => {
-  client = await startClient();
-});
-afterAll(async () => {
-  await client?.close();
-});
+const client = serverForTests();
 
 function codes(diagnostics: readonly Diagnostic[]): string[] {
   return diagnostics.map((d) => String(d.code));
