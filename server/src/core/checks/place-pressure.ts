@@ -22,7 +22,7 @@ export const placePressureUnlikeAltitude = defineCheck({
   severity: 'warning',
   tags: ['plausibility', 'units'],
   doc: {
-    fires: `A place line states both an altitude and a barometric pressure, and the pressure is more than ${PLACE_PRESSURE_MARGIN * 100} % outside what that altitude gives by the U.S. Standard Atmosphere and West's model atmosphere (which differ by a few mmHg). The stated pressure is the one used for PiO2 and the A–a gradient, and the altitude is left out.`,
+    fires: `A place line states both an altitude and a barometric pressure, and the pressure is more than ${PLACE_PRESSURE_MARGIN * 100} % outside what that altitude gives by the U.S. Standard Atmosphere and West's model atmosphere (which differ by a few mmHg). The stated pressure is the one used for PiO2, the A–a gradient and whether the P/F is adjusted for altitude (above 1,000 m), and the altitude is left out.`,
     example: 'place altitude 2000 m, barometric 700 mmHg',
     fix: 'Check both numbers and their units (an altitude in feet written as metres, a pressure in kPa written as mmHg). Keep the pressure measured where the patient is, or remove it to have it estimated from the altitude.',
   },
