@@ -7,6 +7,7 @@
 import { describe, expect, it } from 'vitest';
 import { checkNote } from '../../server/src/core';
 import { codeActions } from '../../server/src/core/service';
+import { applyEdits } from '../../server/src/core/service/text-edits';
 
 const pn201 = (line: string) => checkNote(`@ 08:00\n${line}`).findings.filter((f) => f.code === 'PN201');
 const offered = (line: string) => pn201(line).map((f) => [f.message, f.fixes.map((x) => x.title)]);
@@ -26,6 +27,28 @@ describe('a key written on the wrong line', () => {
 
   it('keeps the line\'s own name of the end-expiratory pressure (`peep` on an NIV oxygen line is `epap`)', () => {
     expect(offered('oxygen niv, ipap 14, peep 5')).toEqual([['`peep` is not a key of oxygen lines (`peep` belongs on a vent line). Did you mean `epap`?', ['Change to `epap`']]]);
+  });
+
+  it('offers a vent line\'s set rate for `rr`, never applied unasked (the measured rate belongs on a vitals line)', () => {
+    // `RR` is common shorthand for the set rate in a ventilator's settings (common practice, no
+    // source); on a vent line the set rate is `rate`, the measured rate `rr` belongs on a vitals line.
+    for (const written of ['rr', 'RR', 'resp', 'rrate']) {
+      const line = `vent mode VC, vt 450, ${written} 16, peep 8`;
+      expect(offered(line)).toEqual([[`\`${written}\` is not a key of vent lines (\`${written}\` belongs on a vitals line). Did you mean \`rate\`, the ventilator's set rate?`, ['Change to `rate`']]]);
+      expect(pn201(line)[0]?.fixes[0]?.preferred === true).toBe(false);
+      const all = codeActions(checkNote(`@ 08:00\n${line}`), { start: { line: 0, character: 0 }, end: { line: 1, character: 0 } }).find((a) => a.kind === 'source.fixAll');
+      expect(all?.findingCodes ?? []).not.toContain('PN201');
+    }
+    // The fix gives a clean line with the set rate read.
+    const text = '@ 08:00\nvent mode VC, vt 450, rr 16, peep 8';
+    const [finding] = checkNote(text).findings.filter((f) => f.code === 'PN201');
+    const fixed = applyEdits(text, finding!.fixes[0]!.edits);
+    expect(fixed).toBe('@ 08:00\nvent mode VC, vt 450, rate 16, peep 8');
+    const after = checkNote(fixed);
+    expect(after.findings.filter((f) => f.code === 'PN201')).toEqual([]);
+    expect(after.analysis.timeline.timepoints[0]!.values.get('vent_rate')?.stated.value).toBe(16);
+    // Elsewhere a respiratory rate on the wrong line is offered nothing, as before.
+    expect(offered('abg rr 16')).toEqual([['`rr` is not a key of abg lines (`rr` belongs on a vitals line).', []]]);
   });
 
   it('still offers a near key for a misspelt one that is no key anywhere', () => {

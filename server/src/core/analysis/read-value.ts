@@ -358,15 +358,17 @@ function unknownKeyIssue(item: ItemNode, section: SectionId, line: number, lineI
   // device that gives no set airway pressure, no IPAP or EPAP beside `cpap`, no level beside `niv`.
   const lineDevice = section === 'oxygen' ? deviceOfLine(lineItems) : null;
   const candidates = lineDevice !== null ? keysInSection(section).filter((k) => isKeyGiven(k, lineDevice)) : keysInSection(section);
-  const elsewhere = FIELDS.filter((f) => f.aliases.includes(key.text.toLowerCase())).flatMap((f) => f.sections);
+  const elsewhereFields = FIELDS.filter((f) => f.aliases.includes(key.text.toLowerCase()));
+  const elsewhere = elsewhereFields.flatMap((f) => f.sections);
   // A key of another line is on the wrong line, not misspelt: no key of another quantity is
   // offered for it (`hb` on a vitals line is not the heart rate `hr`), but the line's own name.
-  const usual = renamed !== null ? null : elsewhere.length > 0 ? WRONG_LINE : usualKeysOf(key.text, section, lineItems);
+  const usual = renamed !== null ? null : elsewhere.length > 0 ? wrongLineKeys(section, elsewhereFields) : usualKeysOf(key.text, section, lineItems);
   const keys = renamed !== null ? { near: [renamed], setAside: false } : usual ?? settingsBeforeReadings(key.text, section, closest(key.text, candidates, Infinity));
   const near = renamed !== null || usual !== null ? keys.near : [...devices, ...keys.near].slice(0, 3);
   const lines = [...new Set(elsewhere)];
   const where = lines.length > 0 ? ` (\`${key.text}\` belongs on ${/^[aeiou]/.test(lines[0]!) ? 'an' : 'a'} ${lines.join(' or ')} line)` : '';
-  const hint = near.length > 0 ? ` Did you mean ${near.map((k) => `\`${k}\``).join(' or ')}?` : '';
+  const said = usual?.said !== undefined && near.length === 1 ? `, ${usual.said}` : '';
+  const hint = near.length > 0 ? ` Did you mean ${near.map((k) => `\`${k}\``).join(' or ')}${said}?` : '';
   // With a reading set aside the word was as near a key of another kind: never a fix applied unasked.
   const fixes = near.map((k) => ({ title: `Change to \`${k}\``, edits: renameKeepingColumns(lineText, key.span, k), preferred: near.length === 1 && !keys.setAside && safeKeyFix(key.text.toLowerCase(), k.toLowerCase()) }));
   if (section === 'vent' && isSupportKeyOnVentLine(key.text)) {
@@ -419,12 +421,31 @@ function supportOnVentIssue(item: ItemNode, line: number, lineItems: readonly It
 interface UsualKeys {
   readonly near: readonly string[];
   readonly setAside: boolean;
+  /** What the one key offered is, said after it (`the ventilator's set rate`), where its name alone could mislead. */
+  readonly said?: string;
 }
 
 /** Nothing offered, nothing applied unasked. */
 const NO_KEY: UsualKeys = { near: [], setAside: true };
 /** What a key of another line is offered on this one (see `unknownKeyIssue`). */
 const WRONG_LINE: UsualKeys = NO_KEY;
+
+/**
+ * Keys of another line commonly written for a quantity of this one, by field id: the key offered,
+ * never applied unasked. `RR` is common shorthand for the set rate in a ventilator's settings
+ * (common practice, no source): on a vent line the set rate is `rate`, while the measured rate
+ * `rr` belongs on a vitals line, so the offer says which rate it is.
+ */
+const OWN_KEY_ON_LINE: Readonly<Partial<Record<SectionId, Readonly<Record<string, UsualKeys>>>>> = {
+  vent: { rr: { near: ['rate'], setAside: true, said: "the ventilator's set rate" } },
+};
+
+/** What a key of another line (`fields`: the fields it is a key of) is offered on a line of `section`. */
+function wrongLineKeys(section: SectionId, fields: readonly FieldDef[]): UsualKeys {
+  const own = OWN_KEY_ON_LINE[section];
+  if (own !== undefined) for (const f of fields) if (Object.hasOwn(own, f.id)) return own[f.id]!;
+  return WRONG_LINE;
+}
 
 /**
  * Words commonly written for a key of a line that are not its aliases, because they also mean
