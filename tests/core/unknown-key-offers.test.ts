@@ -69,6 +69,15 @@ describe('a ventilator word Pneumark has no key for', () => {
   });
 });
 
+describe('the I:E ratio, which has no key', () => {
+  // `ie` is common shorthand for the ventilator's inspiratory-to-expiratory time ratio (common
+  // practice, no source); the minute volume `ve`, one letter away, is another quantity.
+  it('is reported with no key offered', () => {
+    expect(offered('vent mode VC, vt 450, ie 1:2')).toEqual([['`ie` is not a key of vent lines.', []]]);
+    expect(offered('vent mode VC, vt 450, IE 1:2')).toEqual([['`IE` is not a key of vent lines.', []]]);
+  });
+});
+
 describe('`ip` and `ep` on an oxygen line', () => {
   // Commonly written for the inspiratory and expiratory pressures of NIV (common practice, no
   // source): offered the line's own keys, by the support its device gives, never applied unasked.

@@ -463,6 +463,8 @@ const USUAL_KEYS: Readonly<Partial<Record<SectionId, Readonly<Record<string, Usu
     // Times and the levels of APRV, which have no key: a key one letter away is another quantity
     // (`tinsp` is not `pinsp`, `plow` and `tlow` are not `flow`), so none is offered.
     tinsp: NO_KEY, ti: NO_KEY, te: NO_KEY, thigh: NO_KEY, tlow: NO_KEY, phigh: NO_KEY, plow: NO_KEY,
+    // The I:E ratio has no key either, and the minute volume `ve` is one letter from `ie`.
+    ie: NO_KEY,
   },
 };
 
