@@ -69,6 +69,25 @@ describe('a ventilator word Pneumark has no key for', () => {
   });
 });
 
+describe('bilevel support written by its common shorthand', () => {
+  // `bipap` and `bpap` are common shorthand for bilevel noninvasive ventilation (common practice,
+  // no source): the device of this format is `niv`. CPAP, one letter nearer by spelling, is another
+  // support, and `ipap` and `epap` are its pressures, not a device.
+  it.each([['bipap'], ['BiPAP'], ['bpap']])('`oxygen %s …` is offered `niv` alone, never applied unasked', (word) => {
+    const line = `oxygen ${word} ipap 14, epap 6, fio2 0.4`;
+    expect(offered(line)).toEqual([[`\`${word}\` is neither a device nor a key of oxygen lines. Did you mean \`niv\`, bilevel noninvasive ventilation?`, ['Change to `niv`']]]);
+    expect(pn201(line)[0]?.fixes[0]?.preferred === true).toBe(false);
+    const text = `@ 08:00\n${line}`;
+    const fixed = applyEdits(text, checkNote(text).findings.find((f) => f.code === 'PN201')!.fixes[0]!.edits);
+    expect(fixed).toBe('@ 08:00\noxygen niv ipap 14, epap 6, fio2 0.4');
+    expect(checkNote(fixed).findings.filter((f) => f.severity === 'error')).toEqual([]);
+  });
+
+  it('is not a device after the first word of the line', () => {
+    expect(offered('oxygen niv, bipap 14')[0]?.[1]).not.toContain('Change to `niv`');
+  });
+});
+
 describe('the I:E ratio, which has no key', () => {
   // `ie` is common shorthand for the ventilator's inspiratory-to-expiratory time ratio (common
   // practice, no source); the minute volume `ve`, one letter away, is another quantity.

@@ -362,7 +362,7 @@ function unknownKeyIssue(item: ItemNode, section: SectionId, line: number, lineI
   const elsewhere = elsewhereFields.flatMap((f) => f.sections);
   // A key of another line is on the wrong line, not misspelt: no key of another quantity is
   // offered for it (`hb` on a vitals line is not the heart rate `hr`), but the line's own name.
-  const usual = renamed !== null ? null : elsewhere.length > 0 ? wrongLineKeys(section, elsewhereFields) : usualKeysOf(key.text, section, lineItems);
+  const usual = renamed !== null ? null : elsewhere.length > 0 ? wrongLineKeys(section, elsewhereFields) : usualKeysOf(key.text, section, lineItems, lineItems[0] === item);
   const keys = renamed !== null ? { near: [renamed], setAside: false } : usual ?? settingsBeforeReadings(key.text, section, closest(key.text, candidates, Infinity));
   const near = renamed !== null || usual !== null ? keys.near : [...devices, ...keys.near].slice(0, 3);
   const lines = [...new Set(elsewhere)];
@@ -468,9 +468,24 @@ const USUAL_KEYS: Readonly<Partial<Record<SectionId, Readonly<Record<string, Usu
   },
 };
 
-function usualKeysOf(written: string, section: SectionId, lineItems: readonly ItemNode[]): UsualKeys | null {
+/**
+ * Words commonly written for a device of an oxygen line that are not among its words, at the start
+ * of the line: the device offered, never applied unasked. `bipap` and `bpap` are common shorthand
+ * for bilevel noninvasive ventilation (common practice, no source), while their spelling neighbour
+ * `cpap` is another support and `ipap` and `epap` are pressures, not devices.
+ */
+const DEVICE_SHORTHAND: Readonly<Record<string, UsualKeys>> = {
+  bipap: { near: ['niv'], setAside: true, said: 'bilevel noninvasive ventilation' },
+  bpap: { near: ['niv'], setAside: true, said: 'bilevel noninvasive ventilation' },
+};
+
+/** What an unknown word of a line is offered in place of its spelling neighbours (`first`: the line's first item), else null. */
+function usualKeysOf(written: string, section: SectionId, lineItems: readonly ItemNode[], first: boolean): UsualKeys | null {
   const lower = written.toLowerCase();
-  if (section === 'oxygen') return lower === 'ip' || lower === 'ep' ? supportKeys(lower, lineItems) : null;
+  if (section === 'oxygen') {
+    if (first && Object.hasOwn(DEVICE_SHORTHAND, lower)) return DEVICE_SHORTHAND[lower]!;
+    return lower === 'ip' || lower === 'ep' ? supportKeys(lower, lineItems) : null;
+  }
   const words = USUAL_KEYS[section];
   return words !== undefined && Object.hasOwn(words, lower) ? words[lower]! : null;
 }
