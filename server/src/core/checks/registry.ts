@@ -26,6 +26,7 @@ import { pressureWithoutSupport } from './pressure-without-support';
 import { bareHbBesideMmolCheck } from './hb-units';
 import { placePressureUnlikeAltitude } from './place-pressure';
 import { therapyOverlap } from './therapy-overlap';
+import { gasAboveFio2Change } from './gas-above-change';
 import { unusualBlank } from './unusual-blank';
 import { fio2OutOfRange, impossibleValue, saturationAbove100, unusualValue } from './value-bounds';
 
@@ -66,6 +67,7 @@ export const CHECKS: readonly CheckDef[] = validateCheckList([
   venturiSetting,
   venturiFio2High,
   highFlowPercent,
+  gasAboveFio2Change,
   pao2AboveAlveolar,
   gasInconsistent,
   tidalVolumeHigh,
