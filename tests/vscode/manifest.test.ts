@@ -95,6 +95,14 @@ describe('the contributed settings', () => {
       expect(unnamed, c).toEqual([]);
       expect(text.includes('off by default'), c).toBe(HINTS_OFF_BY_DEFAULT.has(c));
     }
+    // A number with a range says it, as the settings editor shows no range until a value is out of it.
+    for (const [name, p] of Object.entries(properties)) {
+      if (p.minimum === undefined || p.maximum === undefined) continue;
+      expect(p.markdownDescription ?? p.description, name).toContain(`${p.minimum} to ${p.maximum}`);
+    }
+    // The size limit says how a note is measured, and that a note over it is not formatted either.
+    expect(properties['pneumark.maxNoteSizeKb']?.description).toMatch(/1 KB = 1024 bytes of UTF-8 text/);
+    expect(properties['pneumark.maxNoteSizeKb']?.description).toMatch(/neither checked nor formatted/);
     // Thresholds are in mmHg whatever the note's unit: they say so, with the kPa value.
     expect(properties['pneumark.hypoxaemiaBelowMmhg']?.markdownDescription).toMatch(/in mmHg, also for notes written in kPa \(60 mmHg is 8\.0 kPa\)/);
   });

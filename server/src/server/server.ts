@@ -33,6 +33,7 @@ import type { NoteResult } from '../core/check-note';
 import { codeActionSteps } from '../core/service/actions';
 import { completionsAt } from '../core/service/complete';
 import { formatEdits } from '../core/service/format';
+import { tooLargeMessage } from './too-large-message';
 import { inlayHints, inlayHintSteps } from '../core/service/hints';
 import { hoverAt } from '../core/service/hover';
 import { documentSymbolSteps, foldingRanges } from '../core/service/symbols';
@@ -56,7 +57,7 @@ import {
 import { notePathOf, ProjectConfigs, type FoundConfig } from '../node/project-config';
 import { ConfigWatcher, filesToWatch, foldersToWatch, insideFolders } from './config-watch';
 import { supersededMessage } from './config-problems';
-import { DEFAULT_CLIENT_SETTINGS, MAX_NOTE_SIZE_KB, effectiveSettings, readClientSettings, settingsKey, type ClientSettings, type EffectiveSettings } from './settings';
+import { DEFAULT_CLIENT_SETTINGS, effectiveSettings, readClientSettings, settingsKey, type ClientSettings, type EffectiveSettings } from './settings';
 import { heapBudgetBytes, heapCeilingFor, IdleCollector, lineLongerThan, maxLineChars, overHeapBudget, SMALL_NOTE_CHARS } from './memory';
 import { prepareJson } from './wire';
 import { findingsToPublish, isHintRef, rangesOverlap, toCodeAction, toCompletionItem, toDiagnostic, toDocumentSymbol, toInlayHint, tooManyFindings } from './translate';
@@ -460,21 +461,13 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     if (changed) refreshHints();
   }
 
-  function tooLargeMessage(text: string, maxNoteBytes: number): string {
-    const size = `Pneumark does not analyse notes over ${Math.round(maxNoteBytes / 1024)} KB (this one is ${(Buffer.byteLength(text, 'utf8') / 1048576).toFixed(1)} MB)`;
-    // At the largest limit there is no higher one to offer.
-    return maxNoteBytes >= MAX_NOTE_SIZE_KB * 1024
-      ? `${size}, the most pneumark.maxNoteSizeKb allows: split it into smaller notes, or run \`pneumark check\` on it.`
-      : `${size}: split it into smaller notes, or raise pneumark.maxNoteSizeKb.`;
-  }
-
   /**
    * Why the note's text is not analysed: over `maxNoteSizeKb`, as long as a version whose analysis
    * outgrew the heap budget, or with a line too long to read within it; null when it is analysed.
    * The one rule of the analysis, the requests about the note and the trend view alike.
    */
   function notAnalysed(text: string, state: NoteState): Refusal | null {
-    if (exceedsBytes(text, state.settings.maxNoteBytes)) return { code: 'too-large', message: tooLargeMessage(text, state.settings.maxNoteBytes) };
+    if (exceedsBytes(text, state.settings.maxNoteBytes)) return { code: 'too-large', message: tooLargeMessage(Buffer.byteLength(text, 'utf8'), state.settings.maxNoteBytes) };
     if (state.refused && text.length >= state.refused.from) return tooCostly(state.refused.message);
     const longLine = tooLongLine(text, state);
     return longLine === null ? null : tooCostly(longLine);
