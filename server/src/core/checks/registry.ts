@@ -7,6 +7,7 @@
  * PN4xx physiology, PN5xx privacy, PN9xx internal.
  */
 import type { CheckDef } from './check';
+import { tidalVolumePerKg } from './vt-per-kg';
 import { badShorthand, badTime, highFlowPercent, venturiSetting, decimalComma, duplicateKey, missingValue, otherUnitLikely, strayText, unitNotAllowed, unknownKey, unknownSection, unknownUnit, unknownWord } from './collected';
 import { pao2AboveAlveolar } from './alveolar-limit';
 import { occultHypoxaemiaCheck } from './occult-hypoxaemia';
@@ -66,6 +67,7 @@ export const CHECKS: readonly CheckDef[] = validateCheckList([
   venturiSetting,
   venturiFio2High,
   highFlowPercent,
+  tidalVolumePerKg,
   pao2AboveAlveolar,
   gasInconsistent,
   tidalVolumeHigh,
