@@ -252,6 +252,10 @@ describe('what the documents show a note write gives what they say', () => {
  */
 const SPEC_LINES: Readonly<Record<string, readonly string[] | { readonly on: string; readonly codes: readonly string[] }>> = {
   'vitals hr 80, rr 18.': ['PN105'],
+  // A tidal volume per kg of PBW: not read without a height and sex; read (423 mL) with them; impossible per kg.
+  'vt 6 mL/kg': ['PN325'],
+  'VT 423 mL (6 mL/kg)': { on: '@ 08:00\npatient age 60, sex male, height 175 cm\nvent vt 6 mL/kg', codes: [] },
+  'vt 450 mL/kg': ['PN325'],
   '@ 08:00.': ['PN105'],
   '@ day 2.': ['PN105'],
   '@ +2h.': ['PN105'],

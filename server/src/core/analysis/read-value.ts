@@ -193,6 +193,11 @@ export function readItem(item: ItemNode, section: SectionId, line: number, ctx: 
     readUnit = bareUnit(field, first, ctx, canonical);
   }
 
+  // `vt 6 mL/kg`: per kg of predicted body weight. No number in mL until the timeline reads one from
+  // the PBW in force (`PerKgVolume`); until then shown as written and not used (PN325 says why).
+  if (readUnit.dimension !== canonical.dimension) {
+    return written === null ? null : new Stated(field, section, line, item, null, null, null, readUnit.id, false, null, false);
+  }
   let value: number | null = null;
   let parts: number[] | null = null;
   // An impossible value feeds no calculation (the bounds checks report it).

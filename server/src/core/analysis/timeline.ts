@@ -41,6 +41,7 @@ import type { Settings } from '../settings';
 import type { ItemNode, LineEdit, LineFix, LineNode, NoteTree, SectionLine, Span, TimepointLine } from '../syntax/tree';
 import { MAX_DAY } from '../syntax/parser';
 import { OSCILLATION_MODE } from '../physiology/mechanics';
+import { PER_KG_PBW, pbwFrom, VT_PER_KG_HARD_MAX } from './per-kg-volume';
 import { barometricFromAltitude } from './ambient';
 import { noninvasiveSupport } from './noninvasive-support';
 import { moveLineNames, namesLine, shiftedLine, type InputValue, type LineShift, type Origin, type StatedValue, type Timepoint, type TimepointTime, type ValuesInForce } from './model';
@@ -938,6 +939,7 @@ function apply(section: SectionId, stated: (StatedValue | undefined)[], from: nu
     case 'units': { const g = firstOf(stated, from, to, 'gas_unit'); if (g?.word) state.gasUnit = new HeldValue(g, tp, label); break; }
     case 'oxygen': state.oxygen = hold(EMPTY, stated, from, to, tp, label); state.vent = EMPTY; break;
     case 'vent': {
+      perKgVolumes(stated, from, to, state.patient);
       const mode = firstOf(stated, from, to, 'mode');
       const before = state.vent.get('mode')?.stated.word;
       // In HFOV the mean airway pressure is set, not read off the breaths: held like a setting.
@@ -1004,6 +1006,42 @@ function givesBreaths(oxygen: HeldMap): boolean {
 class ReadAs extends ValueAsRead {
   constructor(read: StatedValue, readonly hereOnly: boolean) { super(read); }
   get line(): number { return this.read.line; }
+}
+
+/**
+ * A tidal volume written per kg of predicted body weight (`vt 6 mL/kg`) among `stated[from, to)`,
+ * read in mL where the patient values in force give a PBW (height and sex, an adult: ARDS Network
+ * 2000): `PerKgVolume`. Elsewhere it stays as read, not used.
+ */
+function perKgVolumes(stated: (StatedValue | undefined)[], from: number, to: number, patient: HeldMap): void {
+  for (let k = from; k < to; k++) {
+    const s = stated[k]!;
+    if (s.readUnit !== PER_KG_PBW) continue;
+    const perKg = s.item.number;
+    if (perKg === null || !(perKg > 0) || perKg > VT_PER_KG_HARD_MAX) continue;
+    const pbw = pbwInForce(patient);
+    if (pbw !== null) stated[k] = new PerKgVolume(s, perKg, pbw);
+  }
+}
+
+/** The predicted body weight (kg) the patient values in force give (`pbwFrom`). */
+function pbwInForce(patient: HeldMap): number | null {
+  const height = patient.get('height')?.stated;
+  const age = patient.get('age')?.stated;
+  return pbwFrom(height && height.usable ? height.value : null, patient.get('sex')?.stated.word ?? null, age && age.usable ? age.value : null);
+}
+
+/** A tidal volume written in mL/kg of PBW, read in mL: `perKg` × `pbwKg`. */
+export class PerKgVolume extends ValueAsRead {
+  private readonly ml: number;
+  constructor(read: StatedValue, readonly perKg: number, readonly pbwKg: number) {
+    super(read);
+    this.ml = perKg * pbwKg;
+  }
+  get line(): number { return this.read.line; }
+  get hereOnly(): boolean { return this.read.hereOnly; }
+  override get value(): number { return this.ml; }
+  override get usable(): boolean { return true; }
 }
 
 /** The settings a change of mode keeps: PEEP and FiO2 (our convention, common practice, no source). */

@@ -7,6 +7,7 @@
  * PN4xx physiology, PN5xx privacy, PN9xx internal.
  */
 import type { CheckDef } from './check';
+import { tidalVolumePerKg } from './vt-per-kg';
 import { badShorthand, badTime, highFlowPercent, venturiSetting, decimalComma, duplicateKey, missingValue, otherUnitLikely, strayText, unitNotAllowed, unknownKey, unknownSection, unknownUnit, unknownWord } from './collected';
 import { pao2AboveAlveolar } from './alveolar-limit';
 import { occultHypoxaemiaCheck } from './occult-hypoxaemia';
@@ -68,6 +69,7 @@ export const CHECKS: readonly CheckDef[] = validateCheckList([
   venturiFio2High,
   highFlowPercent,
   gasAboveFio2Change,
+  tidalVolumePerKg,
   pao2AboveAlveolar,
   gasInconsistent,
   tidalVolumeHigh,

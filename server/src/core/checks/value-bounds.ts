@@ -5,6 +5,7 @@
  */
 import { softBoundsAt, unitsWithin, within, withinAsWritten } from '../analysis/bounds';
 import type { StatedValue } from '../analysis/model';
+import { PER_KG_PBW } from '../analysis/per-kg-volume';
 import type { Bounds, FieldDef } from '../fields/registry';
 import { displayUnit, isSaturationFraction } from '../analysis/read-value';
 import { decimalsFor, readUnitName, writtenDecimals } from '../present';
@@ -208,7 +209,7 @@ export const impossibleValue = defineCheck({
     const field = stated.field;
     // Most values are within bounds: asked first, the rest only of the few that are not.
     if (!field.hard || !outOfBounds(stated, field.hard)) return;
-    if (OWN_CHECKS.has(field.id) || stated.readUnit === null || stated.unitDoubt) return;
+    if (OWN_CHECKS.has(field.id) || stated.readUnit === null || stated.readUnit === PER_KG_PBW || stated.unitDoubt) return;
     if (SATURATIONS.has(field.id) && noneNegative(stated)) return;
     const fix = otherUnitFix(field, stated, usualBounds(field, barometricMmhg, at));
     ctx.report({
@@ -267,7 +268,8 @@ export const unusualValue = defineCheck({
       });
       return;
     }
-    if (OWN_CHECKS.has(field.id) || !stated.usable || stated.readUnit === null || stated.unitDoubt) return;
+    // A tidal volume per kg of PBW has bounds of its own (PN325).
+    if (OWN_CHECKS.has(field.id) || !stated.usable || stated.readUnit === null || stated.readUnit === PER_KG_PBW || stated.unitDoubt) return;
     if (field.hard && outOfBounds(stated, field.hard)) return;
     const soft = usualBounds(field, barometricMmhg, at);
     // A number written in another unit is compared at the precision written: 20.0 kPa is PaCO2's usual 150 mmHg.

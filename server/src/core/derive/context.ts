@@ -9,7 +9,8 @@ import { fieldById } from '../fields/registry';
 import { displayUnit } from '../analysis/read-value';
 import { endExpiratoryField, givesNoSetPressure, givesPressure, noninvasiveSupport, supportOfPressure, type NoninvasiveSupport } from '../analysis/noninvasive-support';
 import type { Settings } from '../settings';
-import { formatNumber, wordList } from '../util/format';
+import { formatNumber, formatShort, wordList } from '../util/format';
+import { PER_KG_PBW } from '../analysis/per-kg-volume';
 import { describeOrigin, kpaResolutionMmhg } from '../present';
 import type { DerivedCategory, DerivedValue, InputOrigin, MissingValue, NotApplicable, Term } from './model';
 import { NONE } from '../util/lists';
@@ -493,6 +494,7 @@ function termOf(input: InputValue, name?: string): Term {
   const field = input.stated.field;
   const fieldId = field.id;
   const unit = input.stated.unit === null || input.stated.unit === 'fraction' || input.stated.unit === 'ph' ? '' : displayUnit(input.stated.unit);
+  if (input.stated.readUnit === PER_KG_PBW) return perKgTerm(input, name, unit);
   return {
     name: name ?? field.short ?? field.aliases[0] ?? fieldId,
     value: input.stated.value ?? NaN,
@@ -500,6 +502,25 @@ function termOf(input: InputValue, name?: string): Term {
     decimals: field.decimals,
     origin: input.origin,
     fieldId,
+  };
+}
+
+/**
+ * The term of a tidal volume written per kg of PBW and read in mL (`vt 6 mL/kg`): its note says so,
+ * `6 mL/kg × PBW 70.6 kg` (ARDS Network 2000 equation, the timeline's `PerKgVolume`).
+ */
+function perKgTerm(input: InputValue, name: string | undefined, unit: string): Term {
+  const field = input.stated.field;
+  const perKg = input.stated.item.number ?? NaN;
+  const value = input.stated.value ?? NaN;
+  return {
+    name: name ?? field.short ?? field.aliases[0] ?? field.id,
+    value,
+    unit,
+    decimals: field.decimals,
+    origin: input.origin,
+    fieldId: field.id,
+    note: `${input.stated.item.value?.text ?? formatShort(perKg)} mL/kg × PBW ${formatNumber(value / perKg, 1)} kg, ARDS Network 2000 equation`,
   };
 }
 

@@ -103,6 +103,8 @@ export function renderFieldTable(): string {
     '',
     `A tidal volume's usual minimum follows the patient's size: ${VT_USUAL_MIN_ML_PER_KG} mL per kg of the smaller of the weight and the predicted body weight in force; the table's 50 mL applies where the note gives neither. An impossible value is offered another unit only where the number is usual in it (\`vt 450 L\` is offered mL, \`vt 5 L\` is not).`,
     '',
+    'A tidal volume may be written per kg of predicted body weight (`vt 6 mL/kg`, also `ml/kg`; not `mL/kg PBW`, whose `PBW` is read as a key). Where the height and sex in force on that vent line give a PBW (an adult: ARDS Network 2000 equation, as `predicted_body_weight`), it is read in mL, 6 × PBW, and every derived value uses that volume (VT/PBW then shows 6.0); hovers and `show` give it with the number written (`VT 423 mL (6 mL/kg)`), and the derived values that use it name it `6 mL/kg × PBW 70.6 kg`. A volume so read is carried forward in mL, as read where it was written. Where no PBW is worked out (no height or sex, a child, an impossible number per kg: 0 or less, above 30 mL/kg, where `vt 450 mL/kg` is offered `mL`), it is shown as written, not used and reported (PN325), and so is one read below the lung-protective 4 mL/kg (above 8 mL/kg PN403 reports it). CSV and JSON Lines give the volume read in `vt_mL` (empty where it was not read), FHIR the tidal volume Observation in mL only where it was read.',
+    '',
     FIELD_TABLE_END,
   );
   return out.join('\n');

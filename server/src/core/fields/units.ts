@@ -15,6 +15,7 @@ export type Dimension =
   | 'rate'
   | 'temperature'
   | 'volume'
+  | 'volume-per-kg'
   | 'flow'
   | 'mass-concentration'
   | 'substance-concentration'
@@ -89,6 +90,8 @@ export const UNITS: readonly UnitDef[] = [
   unit('F', 'temperature', '[degF]', { toBase: (v) => ((v - 32) * 5) / 9, fromBase: (v) => (v * 9) / 5 + 32 }, ['°F', 'degF', 'f', 'fahrenheit']),
   unit('mL', 'volume', 'mL', linear(1), ['ml', 'cc']),
   unit('L', 'volume', 'L', linear(1000), ['l']),
+  // A tidal volume per kg of predicted body weight: read in mL once the PBW is known (timeline).
+  unit('mL/kg', 'volume-per-kg', 'mL/kg', linear(1), ['ml/kg']),
   unit('L/min', 'flow', 'L/min', linear(1), ['l/min', 'lpm', 'l/m', 'litres/min', 'liters/min']),
   unit('L/s', 'flow', 'L/s', linear(60), ['l/s', 'l/sec']),
   unit('g/dL', 'mass-concentration', 'g/dL', linear(1), ['g/dl']),

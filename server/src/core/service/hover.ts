@@ -9,6 +9,7 @@
 import type { NoteResult } from '../check-note';
 import type { StatedValue, Timepoint } from '../analysis/model';
 import { displayUnit } from '../analysis/read-value';
+import { PER_KG_PBW } from '../analysis/per-kg-volume';
 import { deviceWithoutPressure, nivPressureBesideLevel, supportOfDevice } from '../analysis/noninvasive-support';
 import { withheldText, type DerivedValue, type NotApplicable, type TimepointDerivation } from '../derive/model';
 import { derivedDef, withheldByReason } from '../derive/registry';
@@ -154,6 +155,7 @@ function valueText(s: StatedValue, kpaFirst: boolean): string {
 /** The value of `valueText`: `**71 mmHg** = 9.5 kPa`. */
 function shownValue(s: StatedValue, kpaFirst: boolean): string {
   if (s.word !== null) return `**${escapeMarkdown(s.word)}**`;
+  if (s.readUnit === PER_KG_PBW) return perKgValue(s);
   if (s.value === null && !s.parts) return `${code(s.item.value?.text ?? '')} (not read)`;
   const kpa = kpaFirst ? statedInKpa(s) : null;
   if (kpa) return `**${escapeMarkdown(kpa)}** = ${escapeMarkdown(formatStated(s))}`;
@@ -161,6 +163,17 @@ function shownValue(s: StatedValue, kpaFirst: boolean): string {
   const alt = alternativeText(s);
   const asFraction = s.unit === 'fraction' ? ' (a fraction)' : '';
   return `**${escapeMarkdown(shown)}**${asFraction}${alt ? ` = ${escapeMarkdown(alt)}` : ''}`;
+}
+
+/**
+ * A tidal volume written per kg of predicted body weight: `**423 mL** = 6 mL/kg × PBW 70.6 kg
+ * (ARDS Network 2000 equation)` where it was read in mL, `**6 mL/kg** (not read in mL)` where not.
+ */
+function perKgValue(s: StatedValue): string {
+  const written = `${s.item.value?.text ?? ''} mL/kg`;
+  const perKg = s.item.number;
+  if (!s.usable || s.value === null || perKg === null || !(perKg > 0)) return `**${escapeMarkdown(written)}** (not read in mL)`;
+  return `**${escapeMarkdown(formatStated(s))}** = ${escapeMarkdown(written)} × PBW ${formatNumber(s.value / perKg, 1)} kg (ARDS Network 2000 equation)`;
 }
 
 function unitText(result: NoteResult, s: StatedValue, field: FieldDef): string | null {
@@ -226,6 +239,7 @@ function usableText(s: StatedValue, field: FieldDef): string | null {
   // A word field keeps no word it does not know (`device canula`): its value is null, like a number without a unit.
   if (field.kind === 'word') return 'Not used in calculations: the word is not known.';
   if (!s.readUnit) return `Not used in calculations: the unit is not one ${escapeMarkdown(field.label)} takes.`;
+  if (s.readUnit === PER_KG_PBW) return 'Not used in calculations: no predicted body weight to read it in mL by, or a number impossible per kg (see the PN325 finding on this line).';
   return 'Not used in calculations: the value is outside what is possible.';
 }
 
