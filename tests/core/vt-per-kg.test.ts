@@ -128,6 +128,14 @@ describe('bounds of a tidal volume per kg', () => {
     expect(codes(fixed)).toEqual([]);
   });
 
+  it('a number above the largest tidal volume in mL (3000 mL, the field\'s hard maximum) is offered no volume in mL either', () => {
+    const [f] = findings(at('3500'), 'PN325');
+    expect(f?.message).toContain('impossible per kg of predicted body weight (at most 30 mL/kg)');
+    expect(f?.message).not.toContain('a volume in mL');
+    expect(f?.fixes).toEqual([]);
+    expect(findings(at('3000'), 'PN325')[0]?.fixes.map((x) => x.title)).toEqual(['Write 3000 mL']);
+  });
+
   it('30 mL/kg is read (PN403 reports it), 31 and 0 are impossible; 0 is offered nothing', () => {
     expect(codes(at('30'))).toEqual(['PN403']);
     expect(findings(at('31'), 'PN325')[0]?.message).toContain('(at most 30 mL/kg): a volume in mL (31 mL)?');

@@ -4,6 +4,7 @@
  * or sex, a child, an impossible number: `vt 450 mL/kg`, a volume in mL?) and when one read is below
  * the lung-protective range (above it is PN403's, from the VT/PBW derived from it).
  */
+import { fieldById } from '../fields/registry';
 import { SOURCES } from '../physiology';
 import { PER_KG_ADULT_FROM_YEARS, PER_KG_PBW, pbwFrom, VT_PER_KG_HARD_MAX, VT_PER_KG_USUAL } from '../analysis/per-kg-volume';
 import type { StatedValue } from '../analysis/model';
@@ -13,8 +14,8 @@ import { defineCheck, type TimepointContext } from './check';
 import { inHfov } from './oscillation';
 import type { Fix } from '../types';
 
-/** The largest tidal volume in mL the field takes (its hard maximum): a per-kg number above it is no volume in mL either. */
-const VT_HARD_MAX_ML = 3000;
+/** The largest tidal volume in mL the field takes (its hard maximum in the field registry): a per-kg number above it is no volume in mL either. */
+const VT_HARD_MAX_ML = fieldById('vt')?.hard?.max ?? Infinity;
 
 export const tidalVolumePerKg = defineCheck({
   code: 'PN325',
