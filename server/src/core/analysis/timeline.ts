@@ -39,6 +39,7 @@ import { FIELDS, type FieldDef } from '../fields/registry';
 import { sectionById, type SectionId } from '../fields/sections';
 import type { Settings } from '../settings';
 import type { ItemNode, LineEdit, LineFix, LineNode, NoteTree, SectionLine, Span, TimepointLine } from '../syntax/tree';
+import { itemsRemovalSpan } from '../syntax/tree';
 import { MAX_DAY } from '../syntax/parser';
 import { OSCILLATION_MODE } from '../physiology/mechanics';
 import { PER_KG_PBW, pbwFrom, VT_PER_KG_HARD_MAX } from './per-kg-volume';
@@ -878,8 +879,7 @@ function removalOf(written: StatedValue, lines: readonly LineNode[]): LineEdit {
   const item = written.item;
   const line = written.line;
   if (items.length === 1 && node.text.slice(item.span.end).trim() === '') return { span: { start: 0, end: 0 }, newText: '', line, endLine: line + 1 };
-  if (k > 0) return { span: { start: items[k - 1]!.span.end, end: item.span.end }, newText: '', line };
-  if (k + 1 < items.length) return { span: { start: item.span.start, end: items[k + 1]!.span.start }, newText: '', line };
+  if (items.length > 1) return { span: itemsRemovalSpan(items, k), newText: '', line };
   return { span: { start: node.sectionToken.span.end, end: item.span.end }, newText: '', line };
 }
 

@@ -12,7 +12,7 @@
 import type { StatedValue } from '../analysis/model';
 import { deviceWithoutPressure, nivPressureBesideLevel, supportOfDevice, supportOfPressure, type NoninvasiveSupport } from '../analysis/noninvasive-support';
 import type { ItemNode, SectionLine } from '../syntax/tree';
-import { toRange } from '../syntax/tree';
+import { itemsRemovalSpan, toRange } from '../syntax/tree';
 import type { Fix, TextEdit } from '../types';
 import { defineCheck, type TimepointContext } from './check';
 
@@ -204,10 +204,7 @@ function removalEdits(node: SectionLine, removed: readonly ItemNode[]): TextEdit
     }
     let j = i;
     while (j + 1 < items.length && removed.includes(items[j + 1]!)) j++;
-    const before = items[i - 1];
-    const after = items[j + 1];
-    const cut = before ? { start: before.span.end, end: items[j]!.span.end } : { start: items[i]!.span.start, end: after ? after.span.start : items[j]!.span.end };
-    edits.push({ range: toRange(node.line, cut), newText: '' });
+    edits.push({ range: toRange(node.line, itemsRemovalSpan(items, i, j)), newText: '' });
     i = j + 1;
   }
   return edits;

@@ -159,6 +159,18 @@ export interface NoteTree {
   readonly eol: '\n' | '\r\n' | '\r';
 }
 
+/**
+ * The span that takes the run of items `items[first..last]` out of their line: with the separator
+ * before the run, or, where the run comes first, with the one after it; the run alone where it is
+ * all the line holds.
+ */
+export function itemsRemovalSpan(items: readonly ItemNode[], first: number, last: number = first): Span {
+  const before = items[first - 1];
+  if (before) return { start: before.span.end, end: items[last]!.span.end };
+  const after = items[last + 1];
+  return { start: items[first]!.span.start, end: after ? after.span.start : items[last]!.span.end };
+}
+
 export function toRange(line: number, span: Span): Range {
   return rangeBetween(line, span.start, line, span.end);
 }
