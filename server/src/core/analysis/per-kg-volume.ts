@@ -4,12 +4,13 @@
  * as written and not used (PN325 says what to add).
  */
 import { predictedBodyWeightKg } from '../physiology/mechanics';
+import { ADULT_FROM_YEARS } from '../physiology/adults';
 
 /** The unit id of a tidal volume per kg of predicted body weight. */
 export const PER_KG_PBW = 'mL/kg';
 
-/** Age (years) from which the ARDS Network's predicted body weight is worked out (as PBW_ADULT_FROM_YEARS in derive/mechanics.ts). */
-export const PER_KG_ADULT_FROM_YEARS = 18;
+/** Age (years) from which the ARDS Network's predicted body weight is worked out: the one adult age of physiology/adults.ts. */
+export { ADULT_FROM_YEARS as PER_KG_ADULT_FROM_YEARS } from '../physiology/adults';
 
 /**
  * Above it a tidal volume in mL/kg is impossible, and taken for a volume in mL written with the
@@ -31,6 +32,6 @@ export const VT_PER_KG_USUAL = { min: 4, max: 8 } as const;
  */
 export function pbwFrom(heightCm: number | null, sex: string | null, ageYears: number | null): number | null {
   if (heightCm === null || (sex !== 'male' && sex !== 'female')) return null;
-  if (ageYears !== null && ageYears < PER_KG_ADULT_FROM_YEARS) return null;
+  if (ageYears !== null && ageYears < ADULT_FROM_YEARS) return null;
   return predictedBodyWeightKg(heightCm, sex);
 }

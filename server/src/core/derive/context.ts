@@ -38,14 +38,8 @@ const NO_EXTRAS: ValueExtras = {};
 /** Extras giving only the decimals: one shared object per number of decimals (values shown beside a limit). */
 const WITH_DECIMALS: readonly ValueExtras[] = Array.from({ length: 9 }, (_, d) => Object.freeze({ decimals: d }));
 
-/**
- * The age (years) from which rules made in adults are applied: the ARDS Network's predicted body
- * weight (its trial enrolled adults of 18 years or more: ARDS Network 2000, from memory; that its
- * equation holds for adults only, read in the abstract of a BMC Pulm Med 2017 paper on predicted
- * body weight from pre-term to adult, doi 10.1186/s12890-017-0427-1) and the
- * age rules for the upper normal A–a gradient (made in adults). A younger patient gets neither.
- */
-export const ADULT_FROM_YEARS = 18;
+/** The age from which rules made in adults are applied: see physiology/adults.ts. */
+export { ADULT_FROM_YEARS } from '../physiology/adults';
 
 export function withDecimals(decimals: number | undefined): ValueExtras {
   if (decimals === undefined) return NO_EXTRAS;
