@@ -14,7 +14,7 @@
 // the units); PBW male 50 + 0.91 × (height − 152.4), female 45.5 + 0.91 × (height − 152.4) (ARDS
 // Network, NEJM 2000;342:1301–1308); VE = VT × RR, compliance VT / (P − PEEP) (common practice, no
 // source); ventilatory ratio VE × PaCO2 / (PBW × 100 × 37.5) (Sinha P et al., AJRCCM 2019;199:333–341);
-// OI = FiO2 × MAP × 100 / PaO2 (Ortiz et al. 1987, from memory); ROX = SpO2 / FiO2 / RR (Roca O et al.,
+// OI = FiO2 × MAP × 100 / PaO2 (Ortiz et al. 1987; the form read in table 1 of BJA Education 2022, PMC9217163); ROX = SpO2 / FiO2 / RR (Roca O et al.,
 // AJRCCM 2019;199:1368–1376).
 import { describe, expect, it } from 'vitest';
 import { checkNote } from '../../server/src/core/check-note';
@@ -239,7 +239,7 @@ const CASES: readonly TimeCase[] = [
   },
   {
     name: 'HFOV: OI from the set mean airway pressure, no VE or compliance',
-    source: 'OI = FiO2 × MAP × 100 / PaO2 (Ortiz et al. 1987; PALICC 2015, from memory)',
+    source: 'OI = FiO2 × MAP × 100 / PaO2 (Ortiz et al. 1987; PALICC 2015; the form read in table 1 of BJA Education 2022, PMC9217163)',
     note: MODES,
     timepoint: 2,
     values: { oxygenation_index: [(0.8 * 25 * 100) / 65, 9], pf_ratio: [65 / 0.8, 9] }, // 30.77; 81.25
@@ -247,7 +247,7 @@ const CASES: readonly TimeCase[] = [
   },
   {
     name: 'HFOV two hours on: the mean airway pressure is a setting there, carried into the OI',
-    source: 'OI = FiO2 × MAP × 100 / PaO2 (Ortiz et al. 1987; PALICC 2015, from memory)',
+    source: 'OI = FiO2 × MAP × 100 / PaO2 (Ortiz et al. 1987; PALICC 2015; the form read in table 1 of BJA Education 2022, PMC9217163)',
     note: MODES,
     timepoint: 3,
     values: { oxygenation_index: [(0.8 * 25 * 100) / 70, 9] }, // 28.57

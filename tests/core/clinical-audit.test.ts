@@ -138,7 +138,7 @@ const CASES: readonly AuditCase[] = [
   },
   {
     name: 'metabolic alkalosis with the expected respiratory response',
-    source: 'expected PaCO2 40 + 0.7 × (HCO3 − 24) ± 2 (Berend et al, NEJM 2014;371:1434–1445, the rule from memory)',
+    source: 'expected PaCO2 40 + 0.7 × (HCO3 − 24) ± 2 (Berend et al, NEJM 2014;371:1434–1445, the rule read in its reproduction at physician.tw)',
     note: 'patient age 80 y\n@ 08:00\noxygen room air\nabg 7.50/48/85/36.5\nlabs na 136, cl 88',
     values: {
       paco2_expected: [40 + 0.7 * 12.5, 9], // centre 48.75: 46.75–50.75
@@ -148,7 +148,7 @@ const CASES: readonly AuditCase[] = [
   },
   {
     name: 'metabolic alkalosis with PaCO2 above 50 on air: hypercapnia without hypoxaemia, and an added respiratory acidosis',
-    source: 'Berend et al 2014 (rule from memory); hypercapnia > 50 mmHg, common practice, no source',
+    source: 'Berend et al 2014 (rule read in its reproduction at physician.tw); hypercapnia > 50 mmHg, common practice, no source',
     note: 'patient age 75 y\n@ 08:00\noxygen room air\nabg 7.49/56/68/42\nlabs na 138, cl 84',
     values: { paco2_expected: [40 + 0.7 * 18, 9] }, // 52.6: 50.6–54.6
     readings: {

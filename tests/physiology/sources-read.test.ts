@@ -12,14 +12,35 @@
  * - The author of the AARC capnography guideline of 2003, McArthur CD, Respir Care 2003;48:534–539,
  *   read in the National Guideline Clearinghouse summary of its 2011 update (web archive of
  *   guidelines.gov).
+ *
+ * Read in December 2026 (session 25), each beside its test below:
+ * - Berend's rule for metabolic alkalosis, PaCO2 = 0.7 × (HCO3 − 24) + 40 ± 2, in a table of
+ *   compensation rules headed by the citation NEJM 2014;371:1434 (physician.tw).
+ * - The oxygenation index, (FiO2 × mean airway pressure × 100) / PaO2, with the PALICC bands
+ *   4 ≤ OI < 8, 8 ≤ OI < 16, OI ≥ 16, in table 1 of a 2022 review in BJA Education (PMC9217163).
+ * - The traditional tidal volumes of 10 to 15 mL per kg of body weight, and the trial's arms of
+ *   6 and 12 mL per kg of predicted body weight, in the abstract of ARDS Network 2000 (themednet.org).
+ * - The arterial to end-tidal CO2 gradient, normally less than 5 mmHg and raised by dead-space
+ *   disease, in Malley WJ, Clinical Blood Gases, 2nd edition, 2005, pp 406–415, as quoted at
+ *   sagamigaoka-ac.com, which gives the AARC guideline of 2003 as its reference.
+ * - A 28 % Venturi mask at 4 L/min, in table 1 of a Breathe review adapted from the 2008 BTS
+ *   guideline (breathe.ersjournals.com).
  */
 import { describe, expect, it } from 'vitest';
+import { VT_PER_KG_HARD_MAX, VT_PER_KG_USUAL } from '../../server/src/core/analysis/per-kg-volume';
+import { venturiFio2High } from '../../server/src/core/checks/venturi-fio2';
+import { venturiSetting } from '../../server/src/core/checks/collected';
+import { tidalVolumePerKg } from '../../server/src/core/checks/vt-per-kg';
+import { acidBaseReading } from '../../server/src/core/checks/interpretations';
 import {
   expectedPaco2MetabolicAcidosis,
+  expectedPaco2MetabolicAlkalosis,
   RESPIRATORY_HCO3_COEFFICIENTS_PER_10_MMHG,
   SOURCES as ACID_BASE,
 } from '../../server/src/core/physiology/acid-base';
-import { OSI_MAX_SPO2_PERCENT, oxygenSaturationIndex, SOURCES as GAS_EXCHANGE } from '../../server/src/core/physiology/gas-exchange';
+import { OSI_MAX_SPO2_PERCENT, oxygenationIndex, oxygenSaturationIndex, SOURCES as GAS_EXCHANGE } from '../../server/src/core/physiology/gas-exchange';
+import { SOURCES as MECHANICS } from '../../server/src/core/physiology/mechanics';
+import { VENTURI_PERCENT } from '../../server/src/core/syntax/parser';
 
 /** Per mmHg, as read; Pneumark's spans are per 10 mmHg. */
 const NARINS_EMMETT_AS_ADAPTED = { acuteAcidosis: 0.1, chronicAcidosis: 0.35, acuteAlkalosis: 0.2, chronicAlkalosis: 0.5 } as const;
@@ -89,5 +110,97 @@ describe('PALICC: the SpO2 limit of the oxygen saturation index, as read', () =>
     expect(GAS_EXCHANGE['palicc-2015']).toContain('PMC9848214');
     expect(GAS_EXCHANGE['palicc-2015']).toContain('PMC6589490');
     expect(GAS_EXCHANGE['palicc-2015']).not.toContain('SpO2 limit for the OSI from memory');
+  });
+});
+
+// Berend's rule as read: "PaCO2 = 0.7 (HCO3–24) + 40 ± 2", with "↑ PaCO2 = 0.7 × ΔHCO3", in a table
+// of compensation rules headed by the citation NEJM 2014;371:1434 (Berend, de Vries and Gans), at
+// physician.tw/Compensation-for-Acid-Base-Disorders.
+const BEREND_SLOPE = 0.7;
+const BEREND_HALF_WIDTH_MMHG = 2;
+
+describe('Berend 2014: the expected PaCO2 of a metabolic alkalosis, as read', () => {
+  it('is 40 + 0.7 × (HCO3 − 24) ± 2 mmHg from HCO3 25 to 50 mmol/L (HCO3 34 → 45–49, centre 47)', () => {
+    for (let hco3 = 25; hco3 <= 50; hco3 += 0.5) {
+      const range = expectedPaco2MetabolicAlkalosis(hco3)!;
+      const read = 40 + BEREND_SLOPE * (hco3 - 24);
+      expect(range.centre).toBeCloseTo(read, 12);
+      expect(range.low).toBeCloseTo(read - BEREND_HALF_WIDTH_MMHG, 12);
+      expect(range.high).toBeCloseTo(read + BEREND_HALF_WIDTH_MMHG, 12);
+    }
+    const at34 = expectedPaco2MetabolicAlkalosis(34)!;
+    expect([at34.low, at34.centre, at34.high].map((v) => Math.round(v * 10) / 10)).toEqual([45, 47, 49]);
+  });
+
+  it('the citation says where the rule was read, and the acid–base reading no longer calls it recalled', () => {
+    expect(ACID_BASE['berend-2014']).toContain('physician.tw');
+    expect(ACID_BASE['berend-2014']).not.toContain('from memory');
+    expect(acidBaseReading.source).not.toContain('(from memory)');
+  });
+});
+
+// The oxygenation index as read: "Oxygenation index (OI)=(Fio2 × mean airway pressure × 100)/Pao2",
+// severity "4 ≤ OI < 8", "8 ≤ OI <16", "OI ≥ 16", in table 1 of a 2022 review in BJA Education
+// (22(9):364–370), at pmc.ncbi.nlm.nih.gov/articles/PMC9217163.
+describe('Ortiz 1987 and PALICC: the oxygenation index, as read', () => {
+  it('is FiO2 × MAP × 100 / PaO2: FiO2 0.5, MAP 16 cmH2O, PaO2 100 mmHg → 8, the lower end of the moderate band', () => {
+    expect(oxygenationIndex(0.5, 16, 100)).toBeCloseTo(8, 12);
+    expect(oxygenationIndex(0.6, 20, 60)).toBeCloseTo(20, 12);
+    for (const [fio2, map, pao2] of [[0.3, 10, 75], [1, 25, 50], [0.45, 18, 62]] as const) {
+      expect(oxygenationIndex(fio2, map, pao2)).toBeCloseTo((fio2 * map * 100) / pao2, 12);
+    }
+  });
+
+  it('the citation says where the form was read', () => {
+    expect(GAS_EXCHANGE['ortiz-1987']).toContain('PMC9217163');
+    expect(GAS_EXCHANGE['ortiz-1987']).not.toContain('from memory');
+  });
+});
+
+// The ARDS Network trial's abstract as read: "Traditional approaches to mechanical ventilation use
+// tidal volumes of 10 to 15 ml per kilogram of body weight"; its arms "an initial tidal volume of
+// 12 ml per kilogram of predicted body weight" and "of 6 ml per kilogram"; at themednet.org.
+const TRADITIONAL_VT_PER_KG = { min: 10, max: 15 } as const;
+const TRIAL_ARMS_PER_KG = { lower: 6, traditional: 12 } as const;
+
+describe('ARDS Network 2000: the tidal volumes per kg its abstract gives, as read', () => {
+  it('the 30 mL/kg ceiling is twice the largest traditional tidal volume, 15 mL/kg, and above every arm of the trial', () => {
+    expect(VT_PER_KG_HARD_MAX).toBe(2 * TRADITIONAL_VT_PER_KG.max);
+    expect(VT_PER_KG_HARD_MAX).toBeGreaterThan(TRIAL_ARMS_PER_KG.traditional);
+    expect(TRIAL_ARMS_PER_KG.lower).toBeGreaterThanOrEqual(VT_PER_KG_USUAL.min);
+    expect(TRIAL_ARMS_PER_KG.lower).toBeLessThanOrEqual(VT_PER_KG_USUAL.max);
+    expect(TRADITIONAL_VT_PER_KG.min).toBeGreaterThan(VT_PER_KG_USUAL.max);
+  });
+
+  it('the citations say where the abstract was read', () => {
+    expect(MECHANICS['ardsnet-2000']).toContain('themednet.org');
+    expect(tidalVolumePerKg.source).toContain('10 to 15 mL');
+  });
+});
+
+// The arterial to end-tidal CO2 gradient as read: "Normally, the gradient is less than 5 mm Hg;
+// however, it can be increased with deadspace disease such as pulmonary embolism or decreased
+// cardiac output", citing the AARC guideline of 2003: Malley WJ, Clinical Blood Gases, 2nd edition,
+// 2005, pp 406–415, as quoted at sagamigaoka-ac.com.
+describe('AARC 2003: the arterial to end-tidal CO2 gradient, as read', () => {
+  it('the citation gives the 5 mmHg read and where, and says the lower figure was not read', () => {
+    expect(GAS_EXCHANGE['arterial-end-tidal-co2']).toContain('less than 5 mmHg');
+    expect(GAS_EXCHANGE['arterial-end-tidal-co2']).toContain('Malley WJ');
+    expect(GAS_EXCHANGE['arterial-end-tidal-co2']).toContain('its lower figure, 2 mmHg, not read');
+  });
+});
+
+// A Venturi setting as read: "use a 28% Venturi mask (4 L·min−1)", in table 1 of a Breathe review,
+// adapted from tables 1–4 of the 2008 BTS guideline for emergency oxygen use, at breathe.ersjournals.com.
+describe('BTS: a Venturi setting, as read', () => {
+  it('28 % lies among the Venturi oxygen fractions Pneumark reads after venturi, and its 4 L/min outside them', () => {
+    expect(28).toBeGreaterThanOrEqual(VENTURI_PERCENT.min);
+    expect(28).toBeLessThanOrEqual(VENTURI_PERCENT.max);
+    expect(4).toBeLessThan(VENTURI_PERCENT.min);
+  });
+
+  it('the citations say where the setting was read', () => {
+    expect(venturiSetting.source).toContain('breathe.ersjournals.com');
+    expect(venturiFio2High.source).toContain('breathe.ersjournals.com');
   });
 });

@@ -14,8 +14,9 @@ export { ADULT_FROM_YEARS as PER_KG_ADULT_FROM_YEARS } from '../physiology/adult
 
 /**
  * Above it a tidal volume in mL/kg is impossible, and taken for a volume in mL written with the
- * wrong unit (`vt 450 mL/kg`): not converted (common practice, no source: more than twice the
- * largest tidal volumes per kg once given, about 12–15 mL/kg, from memory).
+ * wrong unit (`vt 450 mL/kg`): not converted (common practice, no source: twice the largest of the
+ * tidal volumes once given, 10 to 15 mL per kg of body weight, and above the 12 mL/kg of PBW of the
+ * trial's traditional arm, read in the abstract of ARDS Network 2000 as SOURCES['ardsnet-2000'] cites it).
  */
 export const VT_PER_KG_HARD_MAX = 30;
 

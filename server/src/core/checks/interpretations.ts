@@ -77,7 +77,7 @@ export const respiratoryFailureReading = interpretationCheck('PN412', 'respirato
   fix: READING_FIX,
 });
 
-export const acidBaseReading = interpretationCheck('PN413', 'acid-base-reading', 'Acid–base reading', ['acid-base'], "primary disorder and compensation: Albert, Dell & Winters 1967; Narins & Emmett 1980; Adrogué & Madias 2010; Berend et al. 2014 (from memory)", {
+export const acidBaseReading = interpretationCheck('PN413', 'acid-base-reading', 'Acid–base reading', ['acid-base'], "primary disorder and compensation: Albert, Dell & Winters 1967; Narins & Emmett 1980; Adrogué & Madias 2010; Berend and coauthors 2014 (where each rule was read, or that it was recalled, is said in the sources of the expected PaCO2 and expected HCO3 values)", {
   fires: 'The gas is consistent with an acid–base disorder: the primary disorder, whether the compensation is in the expected range, a second disorder the values are also consistent with, and acute versus chronic for a respiratory disorder, each with the numbers it rests on. A gas whose pH, PaCO2 and HCO3 do not fit together (PN402) is not interpreted, and no expected compensation is worked out from it.',
   example: '@ 08:00\nabg 7.21/24/95/9.5',
   fix: READING_FIX,

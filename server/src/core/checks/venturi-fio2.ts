@@ -22,7 +22,7 @@ export const venturiFio2High = defineCheck({
     example: '@ 08:00\noxygen venturi 0.8',
     fix: 'Name the device that gives this FiO2 (a reservoir mask, high flow, NIV), or write the Venturi setting that was given.',
   },
-  source: "European Respiratory Society, European Lung White Book, Principles of respiratory therapy, figure 2: Venturi masks set the inspired oxygen concentration, colour-coded from 24 to 60 %. O'Driscoll BR, Howard LS, Earis J, Mak V, on behalf of the British Thoracic Society Emergency Oxygen Guideline Group. BTS guideline for oxygen use in adults in healthcare and emergency settings. Thorax 2017;72(Suppl 1):ii1–ii90 (the citation read in its entry in the National Guideline Clearinghouse summary 11253; its Venturi settings up to 60 %: from memory)",
+  source: "European Respiratory Society, European Lung White Book, Principles of respiratory therapy, figure 2: Venturi masks set the inspired oxygen concentration, colour-coded from 24 to 60 %. O'Driscoll BR, Howard LS, Earis J, Mak V, on behalf of the British Thoracic Society Emergency Oxygen Guideline Group. BTS guideline for oxygen use in adults in healthcare and emergency settings. Thorax 2017;72(Suppl 1):ii1–ii90 (the citation read in its entry in the National Guideline Clearinghouse summary 11253; a 28 % Venturi mask at 4 L/min read in its reproduction in table 1 of a Breathe review, adapted from tables 1–4 of the 2008 BTS guideline, at breathe.ersjournals.com; its settings up to 60 %: from memory)",
   runTimepoint(ctx) {
     const values = ctx.timepoint.values;
     // Asked without building the values: nearly every timepoint states no device.

@@ -28,7 +28,7 @@ export const tidalVolumePerKg = defineCheck({
     example: 'patient sex female\n@ 08:00\nvent mode VC, vt 6 mL/kg, rate 16',
     fix: 'Add the height and sex on a patient line (before the vent line), or write the tidal volume in mL. For an impossible number, a quick fix writes `mL` where the number is a possible tidal volume in mL. Nothing is invented: no height or sex is offered.',
   },
-  source: `${SOURCES['ardsnet-2000']} The ${VT_PER_KG_HARD_MAX} mL/kg hard bound is common practice, no source`,
+  source: `${SOURCES['ardsnet-2000']} The ${VT_PER_KG_HARD_MAX} mL/kg hard bound, twice the largest of the traditional tidal volumes of 10 to 15 mL per kg that its abstract gives, is common practice, no source`,
   runTimepoint(ctx) {
     const stated = ctx.timepoint.stated;
     for (let i = 0; i < stated.length; i++) {
