@@ -674,3 +674,43 @@ describe('FHIR Observations worked out by hand', () => {
     }
   });
 });
+
+/**
+ * A researcher reads a column's description (README's table of columns) to know how to recompute
+ * it. Where the cell is not what the description's formula gives from the other columns, the
+ * description must say why.
+ */
+describe('column descriptions say how the cells were worked out', () => {
+  const description = (name: string): string => exportColumns().find((c) => c.name === name)!.description;
+  const row = timepointRows('23.pneu', note('23-kpa-etco2-vbg').result, plain)[0]!;
+
+  it('the A–a gradient shown as 0, and a/A as 1, where the PaO2 is above the simplified equation\'s PAO2', () => {
+    // 97.2257 − 99.0081 = −1.78 from the columns, yet the cell is 0 (and PaO2 ÷ PAO2 = 1.018, the cell 1)
+    expect((row.pao2_alveolar_mmHg as number) - (row.pao2_mmHg as number)).toBeLessThan(-1.7);
+    expect(row.aa_gradient_mmHg).toBe(0);
+    expect(row.a_to_A_ratio).toBe(1);
+    expect(description('aa_gradient_mmHg')).toMatch(/{PAO2} − {PaO2}.*shown as 0 where the PaO2 is above/);
+    expect(description('a_to_A_ratio')).toMatch(/{PaO2} ÷ {PAO2}.*shown as 1 where the PaO2 is above/);
+    // and empty where it is above even the full equation's (PN401)
+    expect(description('aa_gradient_mmHg')).toContain('PN401');
+    expect(description('a_to_A_ratio')).toContain('PN401');
+  });
+
+  it('the ends of an expected range give their formula, and the width a PaCO2 written in kPa adds', () => {
+    // 24 + (72.0059 − 40) ÷ 10 − 2 = 25.2006 from the PaCO2 column; the cell is 25.1631, from 9.55 kPa
+    const kpa = timepointRows('01.pneu', note('01-kpa-shorthand').result, plain)[0]!;
+    expect(24 + ((kpa.paco2_mmHg as number) - 40) / 10 - 2 - (kpa.hco3_expected_acute_low_mmol_L as number)).toBeGreaterThan(0.03);
+    for (const chronicity of ['acute', 'chronic']) {
+      for (const end of ['low', 'high']) {
+        const text = description(`hco3_expected_${chronicity}_${end}_mmol_L`);
+        expect(text, `${chronicity} ${end}`).toContain('24 + k × ({PaCO2} − 40) ÷ 10');
+        expect(text, `${chronicity} ${end}`).toContain(end === 'low' ? '− 2' : '+ 2');
+        expect(text, `${chronicity} ${end}`).toMatch(/written in kPa/);
+      }
+    }
+    expect(description('hco3_expected_acute_low_mmol_L')).toContain('k = 1');
+    expect(description('hco3_expected_chronic_high_mmol_L')).toContain('k = 3.5 to 5');
+    expect(description('paco2_expected_low_mmHg')).toContain('1.5 × {HCO3} + 8 − 2');
+    expect(description('paco2_expected_high_mmHg')).toContain('40 + 0.7 × ({HCO3} − 24) + 2');
+  });
+});
