@@ -696,6 +696,15 @@ describe('column descriptions say how the cells were worked out', () => {
     expect(description('a_to_A_ratio')).toContain('PN401');
   });
 
+  it('the S/F ratio at an SpO2 above 97 %, given with a note the table loses, and the saturation index, left out there', () => {
+    // Rice TW et al., Chest 2007;132:410–417: S/F tracks P/F where SpO2 is 97 % or less; PALICC 2015: OSI at SpO2 ≤ 97 %.
+    const high = timepointRows('x.pneu', checkNote('patient age 40 y\n@ day 1 08:00\nvent mode VC, fio2 0.5, peep 5, map 12\nvitals spo2 99 %'), plain)[0]!;
+    expect(high.sf_ratio).toBe(99 / 0.5); // 198, given
+    expect(high.oxygen_saturation_index).toBeNull(); // (0.5 × 12 × 100) ÷ 99 = 6.06, not given
+    expect(description('sf_ratio')).toMatch(/above 97 %.*`spo2_pct`/);
+    expect(description('oxygen_saturation_index')).toMatch(/empty where the SpO2 is above 97 %/);
+  });
+
   it('the ends of an expected range give their formula, and the width a PaCO2 written in kPa adds', () => {
     // 24 + (72.0059 − 40) ÷ 10 − 2 = 25.2006 from the PaCO2 column; the cell is 25.1631, from 9.55 kPa
     const kpa = timepointRows('01.pneu', note('01-kpa-shorthand').result, plain)[0]!;

@@ -335,6 +335,9 @@ const WHERE_FROM: Readonly<Record<string, string>> = {
   cao2: 'Arterial oxygen content (CaO2), derived: {Hüfner} × {Hb} × {SaO2} ÷ 100 + 0.003 × {PaO2}, where {Hb} is the Hb of the `abg` line, else the one written last (`hb_g_dL`), {SaO2} the SaO2 (`sao2_pct`), else the SpO2 (`spo2_pct`), and {Hüfner} the hufnerConstant setting (1.34 mL/g by default).',
   mean_arterial_pressure: 'Mean arterial pressure, estimated from the blood pressure (MAP (BP)), derived: {BP diastolic} + ({BP systolic} − {BP diastolic}) ÷ 3, from `bp_systolic_mmHg` and `bp_diastolic_mmHg`; an estimate (common practice).',
   anion_gap: 'Anion gap (AG), derived: {Na} − ({Cl} + {HCO3}), where {HCO3} is the serum bicarbonate (`hco3_serum_mmol_L`), else the arterial gas HCO3 (`hco3_mmol_L`), else the venous gas HCO3 (`hco3_venous_mmol_L`); without potassium.',
+  // The editor notes an S/F above 97 % SpO2 beside the value; a table has no room for the note.
+  sf_ratio: 'S/F ratio (S/F), derived: {SpO2} ÷ {FiO2}; given at any SpO2, though above 97 % it no longer tracks the P/F ratio (Rice 2007, Chest 132:410), so rows to compare with P/F are those with `spo2_pct` at 97 or less.',
+  oxygen_saturation_index: 'Oxygen saturation index (OSI), derived: {FiO2} × {MAP} × 100 ÷ {SpO2}; empty where the SpO2 is above 97 %, where it is not valid (PALICC 2015).',
   // Recomputed from `pao2_alveolar_mmHg` and `pao2_mmHg`, a PaO2 just above the simplified equation's
   // alveolar PO2 gives a negative number where the cell holds 0 (and a ratio above 1 where it holds 1).
   aa_gradient: `A–a gradient (A–a), derived: {PAO2} − {PaO2}, from \`pao2_alveolar_mmHg\` and \`pao2_mmHg\`; shown as 0 where the PaO2 is above that alveolar PO2 by no more than rounding (${ALVEOLAR_ROUNDING_MMHG} mmHg) or than the full alveolar gas equation's alveolar PO2, which reads higher on oxygen; empty where it is above both, or where the alveolar PO2 comes out negative (PN401).`,
