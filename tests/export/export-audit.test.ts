@@ -462,6 +462,16 @@ describe('CSV text, JSON Lines and rows say the same', () => {
     });
   });
 
+  it('--shift-days moves day and minutes, not the offset; --redact empties the label and an unknown mode word', () => {
+    const { result } = note('20-extubated');
+    const shifted = timepointRows('20.pneu', result, { redactProse: true, shiftDays: 2 });
+    // day 4 23:40 → day 6, 5740 + 2 × 1440 = 8620; day 5 00:20 → day 7, 5780 + 2880 = 8660
+    expectRow(shifted[0]!, { day: 6, minutes: 5740 + 2 * 1440, offset_minutes: 0, label: null, mode: 'PS' }, 'shifted 0');
+    expectRow(shifted[1]!, { day: 7, minutes: 5780 + 2 * 1440, offset_minutes: 40, label: null }, 'shifted 1');
+    const own = timepointRows('x.pneu', checkNote('@ day 1 08:00\nvent mode Smithvent, fio2 0.5'), { redactProse: true, shiftDays: 0 })[0]!;
+    expect(own.mode).toBe('[redacted]');
+  });
+
   it('a label with commas and quotes is one quoted field, and the file name too', () => {
     const { result } = note('13-midnight');
     const rows = timepointRows('ward 4, bed "2".pneu', result, plain);
