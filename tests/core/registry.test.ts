@@ -240,13 +240,26 @@ describe('LOINC codes checked on a page', () => {
     expectCode(at('hb', 'labs'), '718-7', 'Hemoglobin [Mass/volume] in Blood', 'https://build.fhir.org/ig/hl7ch/ch-lab-order/ValueSet-top-2000-lab-observations-si.html');
   });
 
-  it('codes not found on such a page stay marked as recalled', () => {
-    // Searched for and not found on a page that shows the code with its name (HL7 and FHIR pages, LOINC pages, the MII ICU
-    // module, searched again for the venous gas codes and lactate; in December 2026 by the code, its name and
-    // "venous" on HL7, FHIR and DICOM pages): kept, marked from memory.
+  it('venous bicarbonate and lactate, read in a copy of LOINC table rows', () => {
+    // Elexis's LOINC table (at_medevit_elexis_loinc: code, long common name, short name, class), loaded in
+    // ngiger/elexis-jubula jubula-tests/rsc/db/mysql/simple.sql at 5b7079c9: 14627-4 "Bicarbonate [Moles/volume] in
+    // Venous blood" (HCO3 BldV-sCnc, CHEM) and 32693-4 "Lactate [Moles/volume] in Blood" (Lactate Bld-sCnc, CHEM),
+    // beside 2947-0 "Sodium [Moles/volume] in Blood" as the registry has it. Both were recalled before (December 2026).
+    const elexis = 'https://github.com/ngiger/elexis-jubula/blob/5b7079c92711afba1a7f7837bd49af3ff99fb548/jubula-tests/rsc/db/mysql/simple.sql';
+    expectCode(at('hco3_venous', 'vbg'), '14627-4', 'Bicarbonate [Moles/volume] in Venous blood', elexis);
+    for (const s of ['abg', 'vbg', 'labs'] as const) expectCode(at('lactate', s), '32693-4', 'Lactate [Moles/volume] in Blood', elexis);
+  });
+
+  it('respiratory rate', () => {
+    // FHIR R4 ballot 1 (2018Jan), Observation example respiratory-rate: LOINC code '9279-1' = 'Respiratory rate'
+    expectCode(at('rr', 'vitals'), '9279-1', 'Respiratory rate', 'https://hl7.org/fhir/2018Jan/observation-example-respiratory-rate.xml.html');
+  });
+
+  it('no code is left marked as recalled', () => {
+    // Seen on such pages since they were recalled: 8478-0 (FHIR example mbp), 2746-6, 2021-4 and 2705-2 (DICOM CID 3528
+    // and 3524), 14627-4 and 32693-4 (LOINC table rows, above).
     const recalled = FIELDS.flatMap((f) => loincCodesOf(f).filter((c) => c.fromMemory).map((c) => `${f.id} ${c.code}`));
-    // Seen since on such pages: 8478-0 (FHIR example mbp), 2746-6, 2021-4 and 2705-2 (DICOM CID 3528 and 3524).
-    expect(recalled).toEqual(['hco3_venous 14627-4', 'lactate 32693-4']);
+    expect(recalled).toEqual([]);
   });
 });
 

@@ -64,7 +64,7 @@ describe('hover on a key, value or unit', () => {
     expect(markdown('labs tc|o2 25')).toContain('LOINC 2028-9 — Carbon dioxide, total');
     expect(markdown('vent mode VC, fio|2 0.5')).toContain('LOINC 19994-3 — Oxygen/Total gas setting');
     expect(markdown('vbg p|h 7.31')).toContain('LOINC 2746-6 — pH of Venous blood (checked on: DICOM PS3.16 CID 3528 Blood pH');
-    expect(markdown('vbg hc|o3 24')).toContain('LOINC 14627-4 — Bicarbonate \\[Moles/volume\\] in Venous blood (code recalled, not checked against the LOINC table)');
+    expect(markdown('vbg hc|o3 24')).toContain('LOINC 14627-4 — Bicarbonate \\[Moles/volume\\] in Venous blood (checked on: Elexis LOINC table');
     expect(markdown('vent pla|teau 22')).toContain('LOINC 76259-1 — Pressure.plateau Respiratory system airway --on ventilator (checked on: MII ICU module');
     expect(markdown('vent ra|te 14')).not.toContain('LOINC'); // no code found for the set rate
   });

@@ -57,6 +57,7 @@ import type { InputValue, StatedValue, Timepoint } from '../analysis/model';
 import type { DerivedValue } from '../derive/model';
 import { SEA_LEVEL_MMHG } from '../derive/atmosphere';
 import { fio2InForce } from '../derive/context';
+import { ALVEOLAR_ROUNDING_MMHG } from '../derive/gas-exchange';
 import { DERIVED } from '../derive/registry';
 import { FIELDS, type FieldDef } from '../fields/registry';
 import { sectionById, type SectionId } from '../fields/sections';
@@ -334,7 +335,32 @@ const WHERE_FROM: Readonly<Record<string, string>> = {
   cao2: 'Arterial oxygen content (CaO2), derived: {Hüfner} × {Hb} × {SaO2} ÷ 100 + 0.003 × {PaO2}, where {Hb} is the Hb of the `abg` line, else the one written last (`hb_g_dL`), {SaO2} the SaO2 (`sao2_pct`), else the SpO2 (`spo2_pct`), and {Hüfner} the hufnerConstant setting (1.34 mL/g by default).',
   mean_arterial_pressure: 'Mean arterial pressure, estimated from the blood pressure (MAP (BP)), derived: {BP diastolic} + ({BP systolic} − {BP diastolic}) ÷ 3, from `bp_systolic_mmHg` and `bp_diastolic_mmHg`; an estimate (common practice).',
   anion_gap: 'Anion gap (AG), derived: {Na} − ({Cl} + {HCO3}), where {HCO3} is the serum bicarbonate (`hco3_serum_mmol_L`), else the arterial gas HCO3 (`hco3_mmol_L`), else the venous gas HCO3 (`hco3_venous_mmol_L`); without potassium.',
+  // The editor notes an S/F above 97 % SpO2 beside the value; a table has no room for the note.
+  sf_ratio: 'S/F ratio (S/F), derived: {SpO2} ÷ {FiO2}; given at any SpO2, though above 97 % it no longer tracks the P/F ratio (Rice 2007, Chest 132:410), so rows to compare with P/F are those with `spo2_pct` at 97 or less.',
+  oxygen_saturation_index: 'Oxygen saturation index (OSI), derived: {FiO2} × {MAP} × 100 ÷ {SpO2}; empty where the SpO2 is above 97 %, where it is not valid (PALICC 2015).',
+  // Recomputed from `pao2_alveolar_mmHg` and `pao2_mmHg`, a PaO2 just above the simplified equation's
+  // alveolar PO2 gives a negative number where the cell holds 0 (and a ratio above 1 where it holds 1).
+  aa_gradient: `A–a gradient (A–a), derived: {PAO2} − {PaO2}, from \`pao2_alveolar_mmHg\` and \`pao2_mmHg\`; shown as 0 where the PaO2 is above that alveolar PO2 by no more than rounding (${ALVEOLAR_ROUNDING_MMHG} mmHg) or than the full alveolar gas equation's alveolar PO2, which reads higher on oxygen; empty where it is above both, or where the alveolar PO2 comes out negative (PN401).`,
+  a_to_A_ratio: `a/A ratio (a/A), derived: {PaO2} ÷ {PAO2}, from \`pao2_mmHg\` and \`pao2_alveolar_mmHg\`; shown as 1 where the PaO2 is above that alveolar PO2 by no more than rounding (${ALVEOLAR_ROUNDING_MMHG} mmHg) or than the full alveolar gas equation's alveolar PO2, as the A–a gradient is then shown as 0; empty where it is above both (PN401).`,
 };
+
+/**
+ * The ends of the expected ranges, which the derived value's formula (its centre) does not give:
+ * each end's own formula, and where the ends move with how the input was written.
+ */
+const RANGE_WHERE_FROM: Readonly<Record<string, (end: 'low' | 'high') => string>> = {
+  paco2_expected: (end) => {
+    const sign = end === 'low' ? '−' : '+';
+    return `Expected PaCO2 for the metabolic disorder, ${end === 'low' ? 'lower' : 'upper'} end of the range: 1.5 × {HCO3} + 8 ${sign} 2 in a metabolic acidosis (Winters' formula), 40 + 0.7 × ({HCO3} − 24) ${sign} 2 in a metabolic alkalosis, where {HCO3} is the arterial gas HCO3 (\`hco3_mmol_L\`); empty where the primary disorder is not metabolic, or where the gas's pH, PaCO2 and HCO3 disagree (PN402).`;
+  },
+  hco3_expected_acute: (end) => respiratoryRangeEnd('acute', end, 'k = 1 in a respiratory acidosis, k = 2 in a respiratory alkalosis'),
+  hco3_expected_chronic: (end) => respiratoryRangeEnd('chronic', end, 'k = 3.5 to 5 in a respiratory acidosis, k = 4 to 5 in a respiratory alkalosis'),
+};
+
+function respiratoryRangeEnd(chronicity: 'acute' | 'chronic', end: 'low' | 'high', coefficients: string): string {
+  const low = end === 'low';
+  return `Expected HCO3 if the respiratory disorder is ${chronicity}, ${low ? 'lower' : 'upper'} end of the range: 24 + k × ({PaCO2} − 40) ÷ 10 ${low ? '− 2' : '+ 2'}, the ${low ? 'lowest' : 'highest'} over ${coefficients} (per 10 mmHg; HCO3 falls with a PaCO2 below 40), where {PaCO2} is \`paco2_mmHg\`; for a PaCO2 written in kPa, the ${low ? 'lowest' : 'highest'} PaCO2 the written value stands for (half a unit of its last decimal ${low ? 'less' : 'more'}: 9.6 kPa ${low ? 'as 9.55' : 'as 9.65'} kPa), so that the range holds every PaCO2 it may be; empty where the primary disorder is not respiratory, or where the gas's pH, PaCO2 and HCO3 disagree (PN402).`;
+}
 
 function derivedColumns(def: (typeof DERIVED)[number], fieldIds: ReadonlySet<string>): Column[] {
   const index = DERIVED_INDEX.get(def.id)!;
@@ -345,7 +371,7 @@ function derivedColumns(def: (typeof DERIVED)[number], fieldIds: ReadonlySet<str
     const end = (which: 'low' | 'high'): Column => ({
       ...base,
       name: `${id}_${which}${slug ? `_${slug}` : ''}`,
-      description: `${def.label}, ${which === 'low' ? 'lower' : 'upper'} end of the range.`,
+      description: RANGE_WHERE_FROM[def.id]?.(which) ?? `${def.label}, ${which === 'low' ? 'lower' : 'upper'} end of the range.`,
       part: which,
       cell: (c) => {
         const range = c.derived[index]?.range;
