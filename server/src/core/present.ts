@@ -240,7 +240,7 @@ export type CarriedOrigin = Extract<Origin, { readonly kind: 'carried' }>;
  * before what rests on it.
  */
 export function carriedFromText(origin: CarriedOrigin, naming: 'label' | 'line' | 'here'): string {
-  const when = origin.time.day !== null && origin.at.day !== null && origin.time.day !== origin.at.day ? timeText(origin.time) : null;
+  const when = origin.fromTime.day !== null && origin.atTime.day !== null && origin.fromTime.day !== origin.atTime.day ? timeText(origin.fromTime) : null;
   if (naming === 'here') return when === null ? 'carried from here' : `carried from here, ${when}`;
   let label = naming === 'label' ? origin.timepointLabel || (when === null ? `timepoint ${origin.timepoint + 1}` : '') : '';
   // A timepoint without a label is named by its time as written (`@ 08:00`): the day and time say it.
@@ -250,7 +250,7 @@ export function carriedFromText(origin: CarriedOrigin, naming: 'label' | 'line' 
 
 /** Minutes from the timepoint a carried value was stated at to the one it is in force at; null where either time is unknown. */
 export function carriedMinutes(origin: CarriedOrigin): number | null {
-  return origin.time.minutes !== null && origin.at.minutes !== null ? origin.at.minutes - origin.time.minutes : null;
+  return origin.fromTime.minutes !== null && origin.atTime.minutes !== null ? origin.atTime.minutes - origin.fromTime.minutes : null;
 }
 
 /** `day 1 10:00`, as a timepoint line writes it; `day 1` when only the day is known; null when neither is. */

@@ -14,9 +14,9 @@ export type Origin =
   | {
     readonly kind: 'carried'; readonly line: number; readonly span: Span; readonly timepoint: number; readonly timepointLabel: string;
     /** The time of the timepoint it was stated at. */
-    readonly time: TimepointTime;
+    readonly fromTime: TimepointTime;
     /** The time of the timepoint it is in force at (where it was carried to). */
-    readonly at: TimepointTime;
+    readonly atTime: TimepointTime;
   }
   /** From the note's header (patient, place, units before the first timepoint). */
   | { readonly kind: 'header'; readonly line: number; readonly span: Span }

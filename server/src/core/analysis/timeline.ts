@@ -1300,5 +1300,5 @@ function originOf(held: Held, tp: number, at: TimepointTime): Origin {
   const span = held.stated.item.span;
   if (held.timepoint === tp) return { kind: 'here', line, span };
   if (held.timepoint < 0) return { kind: 'header', line, span };
-  return { kind: 'carried', line, span, timepoint: held.timepoint, timepointLabel: held.label, time: held.time, at };
+  return { kind: 'carried', line, span, timepoint: held.timepoint, timepointLabel: held.label, fromTime: held.time, atTime: at };
 }

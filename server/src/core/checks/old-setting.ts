@@ -129,7 +129,7 @@ export const oldSettingCarried = defineCheck({
     }
     const stated = [...groups.values()].map((g) => {
       const first = g[0]!;
-      const when = timeText(first.origin.time) ?? first.origin.timepointLabel;
+      const when = timeText(first.origin.fromTime) ?? first.origin.timepointLabel;
       return `${wordList(g.map((o) => `${settingName(o.id)} ${formatStated(o.input.stated)}`))}, stated at ${when} (line ${first.origin.line + 1}), ${durationText(first.minutes)} before this timepoint`;
     });
     const what = resting.length > 0
