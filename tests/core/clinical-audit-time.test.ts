@@ -103,12 +103,12 @@ const CASES: readonly TimeCase[] = [
     time: [1, 12 * 60 + 30],
   },
   {
-    name: 'two days later nothing restated: FiO2 and PEEP carried, each named by its line',
+    name: 'two days later nothing restated: FiO2 and PEEP carried, each named by its line and the day and time it was written',
     source: 'P/F (ARDS Definition Task Force 2012); chronic respiratory response +3.5 to +5 per 10 mmHg ± 2 (Narins & Emmett 1980; Adrogué & Madias 2010, from memory)',
     note: VENTED,
     timepoint: 4,
     values: { pf_ratio: [110 / 0.6, 9] }, // 183.3
-    readings: { 'oxygenation-band': 'P/F 183 mmHg with PEEP 12 cmH2O (FiO2 carried from line 9; PEEP carried from line 12)' },
+    readings: { 'oxygenation-band': 'P/F 183 mmHg with PEEP 12 cmH2O (FiO2 carried from day 1 10:00, line 9; PEEP carried from day 1 12:30, line 12)' },
     time: [3, 2 * 1440 + 8 * 60],
   },
   {

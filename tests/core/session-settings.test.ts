@@ -48,6 +48,7 @@ const CHANGES: readonly { name: string; settings: Partial<Settings>; differs: (b
   { name: 'a reading check switched off by code', settings: { disabledChecks: ['PN410'] }, differs: (a, b) => codes(a).some((c) => c.startsWith('PN410')) && !codes(b).some((c) => c.startsWith('PN410')) },
   { name: 'a check switched off by alias', settings: { disabledChecks: ['other-unit-likely'] }, differs: (a, b) => codes(a).includes('PN204@6') && !codes(b).includes('PN204@6') },
   { name: 'privacy checks off', settings: { privacyChecks: false }, differs: (a, b) => codes(a).includes('PN501@7') && !codes(b).includes('PN501@7') },
+  { name: 'a shorter limit on carried settings', settings: { carriedSettingHours: 3 }, differs: (a, b) => !codes(a).includes('PN326@15') && codes(b).includes('PN326@15') },
   { name: 'full alveolar equation', settings: { alveolarEquation: 'full' }, differs: (a, b) => JSON.stringify(snapshot(a)) !== JSON.stringify(snapshot(b)) },
 ];
 

@@ -219,7 +219,8 @@ describe('hover on a timepoint line', () => {
     expect(markdown(note('@ day 0 0|9:00'))).toContain('Time: day 0, 09:00 (900 min before day 1 00:00).');
     expect(md).toContain('**Carried into this timepoint**');
     expect(md).toContain('Age 58 y (header, line 1)');
-    expect(md).toContain('FiO2 0.80 (carried from admitted, line 3)');
+    // Carried across midnight: the day and time it was written are named.
+    expect(md).toContain('FiO2 0.80 (carried from admitted, day 1 22:15, line 3)');
     expect(md).toContain('**Derived here**');
     expect(md).toContain('P/F ratio (P/F): **110 mmHg** = 14.7 kPa — _uses a carried value_');
     expect(md).toContain('Driving pressure (ΔP): **15 cmH2O**');

@@ -4,6 +4,7 @@ import type { Timepoint } from '../core/analysis/model';
 import type { InputOrigin, TimepointDerivation } from '../core/derive/model';
 import { displayUnit } from '../core/analysis/read-value';
 import { exportedNumber } from '../core/export/precision';
+import { carriedMinutes } from '../core/present';
 
 /** A number as every export writes it (12 significant digits: see core/export/precision.ts). */
 const num = exportedNumber;
@@ -30,6 +31,8 @@ function originJson(origin: InputOrigin): JsonOrigin {
     line: origin.kind === 'default' ? null : origin.line + 1,
     timepoint: origin.kind === 'carried' ? origin.timepoint : null,
     description: origin.kind === 'default' ? origin.description : null,
+    // Added in version 1 for carried values only: how long before this timepoint it was stated.
+    ...(origin.kind === 'carried' ? { carriedMinutes: carriedMinutes(origin) } : {}),
   };
 }
 
@@ -39,6 +42,8 @@ export interface JsonOrigin {
   readonly timepoint: number | null;
   readonly description: string | null;
   readonly derived?: string;
+  /** Carried values only: minutes from the timepoint the value was stated at to this one; null where a time is unknown. */
+  readonly carriedMinutes?: number | null;
 }
 
 /** Each timepoint of the note as JSON; with `written`, each as `written` makes it of its JSON (then let go). */

@@ -2,7 +2,7 @@
  * Plain-text presentation shared by the CLI, hovers and exports: how a value is written
  * back for a person, in its unit, and in the other unit system where there is one.
  */
-import type { InputValue, Origin, StatedValue, Timepoint } from './analysis/model';
+import type { InputValue, Origin, StatedValue, Timepoint, TimepointTime } from './analysis/model';
 import { displayUnit } from './analysis/read-value';
 import type { Timeline } from './analysis/timeline';
 import { fieldById, shortName } from './fields/registry';
@@ -222,9 +222,46 @@ export function describeOrigin(origin: Origin): string {
   switch (origin.kind) {
     case 'here': return `line ${origin.line + 1}`;
     case 'header': return `header, line ${origin.line + 1}`;
-    case 'carried': return `carried from ${origin.timepointLabel || `timepoint ${origin.timepoint + 1}`}, line ${origin.line + 1}`;
+    case 'carried': return carriedFromText(origin, 'label');
     case 'default': return origin.description;
   }
+}
+
+/** A carried origin. */
+export type CarriedOrigin = Extract<Origin, { readonly kind: 'carried' }>;
+
+/**
+ * Where a carried value came from, the one wording of it (show, hovers, hints, readings, findings):
+ * `carried from start, line 3` with its timepoint's label (`label`), `carried from line 3` without
+ * it (`line`: readings, where the label, free text of the note, is left out), or `carried from here`
+ * (`here`: a finding's related information, placed on the line). The day and time of the timepoint
+ * it came from are named when that was another day than the timepoint it is in force at
+ * (`carried from start, day 1 10:00, line 3`): a setting from the day before is worth a look
+ * before what rests on it.
+ */
+export function carriedFromText(origin: CarriedOrigin, naming: 'label' | 'line' | 'here'): string {
+  const when = origin.fromTime.day !== null && origin.atTime.day !== null && origin.fromTime.day !== origin.atTime.day ? timeText(origin.fromTime) : null;
+  if (naming === 'here') return when === null ? 'carried from here' : `carried from here, ${when}`;
+  let label = naming === 'label' ? origin.timepointLabel || (when === null ? `timepoint ${origin.timepoint + 1}` : '') : '';
+  // A timepoint without a label is named by its time as written (`@ 08:00`): the day and time say it.
+  if (when !== null && (label === when || when.endsWith(` ${label}`))) label = '';
+  return `carried from ${label ? `${label}, ` : ''}${when !== null ? `${when}, ` : ''}line ${origin.line + 1}`;
+}
+
+/** Minutes from the timepoint a carried value was stated at to the one it is in force at; null where either time is unknown. */
+export function carriedMinutes(origin: CarriedOrigin): number | null {
+  return origin.fromTime.minutes !== null && origin.atTime.minutes !== null ? origin.atTime.minutes - origin.fromTime.minutes : null;
+}
+
+/** `day 1 10:00`, as a timepoint line writes it; `day 1` when only the day is known; null when neither is. */
+export function timeText(time: TimepointTime): string | null {
+  if (time.minutes !== null && Number.isFinite(time.minutes)) {
+    const whole = Math.round(time.minutes);
+    const day = Math.floor(whole / 1440) + 1;
+    const inDay = whole - (day - 1) * 1440;
+    return `day ${day} ${String(Math.floor(inDay / 60)).padStart(2, '0')}:${String(inDay % 60).padStart(2, '0')}`;
+  }
+  return time.day !== null ? `day ${time.day}` : null;
 }
 
 export function labelOf(fieldId: string): string {

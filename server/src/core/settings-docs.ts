@@ -34,6 +34,7 @@ const MEANING: Readonly<Record<keyof Settings, string>> = {
   hypoxaemiaBelowMmhg: `PaO2 below which a gas reads as hypoxaemia, in mmHg also for notes written in kPa (${inKpa(DEFAULT_SETTINGS.hypoxaemiaBelowMmhg)}).`,
   hypercapniaAboveMmhg: `PaCO2 above which a gas reads as hypercapnia, in mmHg also for notes written in kPa (${inKpa(DEFAULT_SETTINGS.hypercapniaAboveMmhg)}).`,
   hypocapniaBelowMmhg: `PaCO2 below which a gas reads as hypocapnia, in mmHg also for notes written in kPa (${inKpa(DEFAULT_SETTINGS.hypocapniaBelowMmhg)}).`,
+  carriedSettingHours: 'Hours an FiO2 (or the oxygen device and flow it is read from), PEEP, EPAP, CPAP level or mean airway pressure may be carried forward into the derived values and readings of a gas before PN326 (`old-setting-carried`) points it out: more than this between the timepoint that wrote the setting and the gas. 12 h, about a shift, is common practice, no source.',
   hufnerConstant: 'Hüfner\'s constant, mL of oxygen bound by 1 g of haemoglobin, in the arterial oxygen content and the oxygen delivery.',
   privacyChecks: `\`false\` switches off every privacy check (${privacyCodes[0] ?? ''}–${privacyCodes[privacyCodes.length - 1] ?? ''}) at once.`,
   disabledChecks: 'Checks switched off, by code (`PN410`) or alias (`oxygenation-reading`): see docs/checks.md. A name that is no check\'s is reported, with the check it likely meant, and switches nothing off.',

@@ -28,6 +28,11 @@ export const settingsSchema = z.object({
   hypercapniaAboveMmhg: z.number().min(40).max(70).default(50),
   /** PaCO2 below this (mmHg) reads as hypocapnia. */
   hypocapniaBelowMmhg: z.number().min(15).max(40).default(35),
+  /**
+   * Hours a ventilator or oxygen setting (FiO2, oxygen device and flow, PEEP, EPAP, CPAP, mean airway pressure) may be
+   * carried into a gas's derived values before PN326 reports it: 12 h, a shift (common practice, no source).
+   */
+  carriedSettingHours: z.number().min(1).max(168).default(12),
   /** Hüfner constant for oxygen content (mL O2 per g Hb). */
   hufnerConstant: z.union([z.literal(1.34), z.literal(1.36), z.literal(1.39)]).default(1.34),
   /**

@@ -11,7 +11,13 @@ export type Origin =
   /** Stated at this timepoint. */
   | { readonly kind: 'here'; readonly line: number; readonly span: Span }
   /** Stated at an earlier timepoint and carried forward. */
-  | { readonly kind: 'carried'; readonly line: number; readonly span: Span; readonly timepoint: number; readonly timepointLabel: string }
+  | {
+    readonly kind: 'carried'; readonly line: number; readonly span: Span; readonly timepoint: number; readonly timepointLabel: string;
+    /** The time of the timepoint it was stated at. */
+    readonly fromTime: TimepointTime;
+    /** The time of the timepoint it is in force at (where it was carried to). */
+    readonly atTime: TimepointTime;
+  }
   /** From the note's header (patient, place, units before the first timepoint). */
   | { readonly kind: 'header'; readonly line: number; readonly span: Span }
   /** A default convention (room air FiO2, RQ 0.8, ...). */

@@ -57,6 +57,8 @@ interface Held {
   /** Timepoint index where it was stated; -1 for the header. */
   readonly timepoint: number;
   readonly label: string;
+  /** The time of the timepoint where it was stated (no time for the header). */
+  readonly time: TimepointTime;
 }
 
 type HeldMap = ReadonlyMap<string, Held>;
@@ -121,7 +123,7 @@ export interface TimelineCache {
  * the performance notes in DEVELOPERS.md).
  */
 class HeldValue implements Held {
-  constructor(readonly stated: StatedValue, readonly timepoint: number, readonly label: string) {}
+  constructor(readonly stated: StatedValue, readonly timepoint: number, readonly label: string, readonly time: TimepointTime) {}
 }
 
 class State implements CarryState {
@@ -284,7 +286,7 @@ class Relocator {
     const stated = tp.stated.map((s) => this.stated(s));
     return new TimepointAt(
       tp.index, tp.line === null ? null : this.line(tp.line), tp.label, this.line(tp.startLine), this.line(tp.endLine),
-      tp.time, stated, new ValuesAt(tp.index, state, stated), tp.barometricMmhg, tp.gasUnit, tp.shownGasUnit,
+      tp.time, stated, new ValuesAt(tp.index, tp.time, state, stated), tp.barometricMmhg, tp.gasUnit, tp.shownGasUnit,
     );
   }
 
@@ -303,7 +305,7 @@ class Relocator {
     if (stated === h.stated) return h;
     const known = this.copies.get(h);
     if (known) return known as Held;
-    const copy: Held = new HeldValue(stated, h.timepoint, h.label);
+    const copy: Held = new HeldValue(stated, h.timepoint, h.label, h.time);
     this.copies.set(h, copy);
     return copy;
   }
@@ -535,9 +537,9 @@ function processBlock(lines: readonly LineNode[], start: number, end: number, in
     const paired = to > from ? duplicates(into, from, to, inHeader ? seenInHeader : seenAtTimepoint, inHeader, issues, lines, mutable.oxygen) : null;
     if (paired !== null) {
       // The FiO2 of a device on one oxygen line and a `fio2` on another: the two lines state one therapy.
-      mutable.oxygen = holdPaired(mutable.oxygen, into, from, to, index, tpLabel!);
+      mutable.oxygen = holdPaired(mutable.oxygen, into, from, to, index, tpLabel!, tpTime);
       mutable.vent = EMPTY;
-    } else apply(node.section, into, from, to, inHeader ? -1 : index, inHeader ? 'header' : tpLabel!, mutable);
+    } else apply(node.section, into, from, to, inHeader ? -1 : index, inHeader ? 'header' : tpLabel!, inHeader ? START_TIME : tpTime, mutable);
   }
   SEEN_IN_HEADER.reset();
   SEEN_AT_TIMEPOINT.reset();
@@ -751,13 +753,13 @@ export function writesFio2(items: readonly ItemNode[]): boolean {
  * this timepoint, then `stated[from, to)`), the `fio2` written in force whichever line is first
  * (the FiO2 read after the device is not held).
  */
-function holdPaired(base: HeldMap, stated: readonly (StatedValue | undefined)[], from: number, to: number, tp: number, label: string): HeldMap {
+function holdPaired(base: HeldMap, stated: readonly (StatedValue | undefined)[], from: number, to: number, tp: number, label: string, time: TimepointTime): HeldMap {
   const next = new Map<string, Held>();
   base.forEach(copyHereInto, new HereInto(next, tp));
   for (let k = from; k < to; k++) {
     const s = stated[k]!;
     if (s.hereOnly || (s.fieldId === 'fio2' && s.item.implied === 'device-flow')) continue;
-    next.set(s.fieldId, new HeldValue(s, tp, label));
+    next.set(s.fieldId, new HeldValue(s, tp, label, time));
   }
   return next;
 }
@@ -912,7 +914,7 @@ type MutableState = { -readonly [K in keyof CarryState]: CarryState[K] };
  * `base` with the settings of `stated` held. A line of readings only (`vent plateau 24`) holds
  * nothing: the held map stays the same object, so the reuse of later timepoints sees no change.
  */
-function hold(base: HeldMap, stated: readonly (StatedValue | undefined)[], from: number, to: number, tp: number, label: string): HeldMap {
+function hold(base: HeldMap, stated: readonly (StatedValue | undefined)[], from: number, to: number, tp: number, label: string, time: TimepointTime): HeldMap {
   let next: Map<string, Held> | null = null;
   for (let k = from; k < to; k++) {
     const s = stated[k]!;
@@ -922,7 +924,7 @@ function hold(base: HeldMap, stated: readonly (StatedValue | undefined)[], from:
       next = new Map();
       base.forEach(copyInto, next);
     }
-    next.set(s.fieldId, new HeldValue(s, tp, label));
+    next.set(s.fieldId, new HeldValue(s, tp, label, time));
   }
   return next ?? base;
 }
@@ -932,12 +934,12 @@ function copyInto(this: Map<string, Held>, held: Held, id: string): void {
 }
 
 /** Holds the settings among `stated[from, to)`, the values of one `section` line. */
-function apply(section: SectionId, stated: (StatedValue | undefined)[], from: number, to: number, tp: number, label: string, state: MutableState): void {
+function apply(section: SectionId, stated: (StatedValue | undefined)[], from: number, to: number, tp: number, label: string, time: TimepointTime, state: MutableState): void {
   switch (section) {
-    case 'patient': state.patient = hold(state.patient, stated, from, to, tp, label); break;
-    case 'place': if (to > from) state.place = hold(EMPTY, stated, from, to, tp, label); break;
-    case 'units': { const g = firstOf(stated, from, to, 'gas_unit'); if (g?.word) state.gasUnit = new HeldValue(g, tp, label); break; }
-    case 'oxygen': state.oxygen = hold(EMPTY, stated, from, to, tp, label); state.vent = EMPTY; break;
+    case 'patient': state.patient = hold(state.patient, stated, from, to, tp, label, time); break;
+    case 'place': if (to > from) state.place = hold(EMPTY, stated, from, to, tp, label, time); break;
+    case 'units': { const g = firstOf(stated, from, to, 'gas_unit'); if (g?.word) state.gasUnit = new HeldValue(g, tp, label, time); break; }
+    case 'oxygen': state.oxygen = hold(EMPTY, stated, from, to, tp, label, time); state.vent = EMPTY; break;
     case 'vent': {
       perKgVolumes(stated, from, to, state.patient);
       const mode = firstOf(stated, from, to, 'mode');
@@ -957,7 +959,7 @@ function apply(section: SectionId, stated: (StatedValue | undefined)[], from: nu
         // describes the same moment (`vent vt 400, rate 20` then `vent mode PS, ps 10`).
         base = new Map([...base].filter(([id, held]) => kept.includes(id) || held.timepoint === tp));
       }
-      state.vent = hold(base, stated, from, to, tp, label);
+      state.vent = hold(base, stated, from, to, tp, label, time);
       break;
     }
     default: break;
@@ -1102,7 +1104,7 @@ function sameHeld(a: Held, b: Held): boolean {
   if (a === b) return true;
   const s = a.stated;
   const t = b.stated;
-  return a.timepoint === b.timepoint && a.label === b.label && s.item === t.item && s.line === t.line && s.fieldId === t.fieldId &&
+  return a.timepoint === b.timepoint && a.label === b.label && a.time.day === b.time.day && a.time.minutes === b.time.minutes && s.item === t.item && s.line === t.line && s.fieldId === t.fieldId &&
     s.value === t.value && s.word === t.word && s.unit === t.unit && s.usable === t.usable && s.unitDoubt === t.unitDoubt &&
     s.readUnit === t.readUnit && s.unitImplied === t.unitImplied && s.hereOnly === t.hereOnly && sameParts(s.parts, t.parts);
 }
@@ -1133,6 +1135,7 @@ class ValuesAt implements ValuesInForce {
 
   constructor(
     private readonly index: number,
+    private readonly time: TimepointTime,
     private readonly state: CarryState,
     private readonly stated: readonly StatedValue[],
   ) {}
@@ -1143,7 +1146,7 @@ class ValuesAt implements ValuesInForce {
     const s = this.measuredHere(id, slot);
     if (s) return { stated: s, origin: { kind: 'here', line: s.line, span: s.item.span } };
     const held = this.heldFor(id, slot);
-    return held ? { stated: held.stated, origin: originOf(held, this.index) } : undefined;
+    return held ? { stated: held.stated, origin: originOf(held, this.index, this.time) } : undefined;
   }
 
   has(id: string): boolean {
@@ -1153,7 +1156,7 @@ class ValuesAt implements ValuesInForce {
 
   heldSetting(id: string): InputValue | undefined {
     const held = this.heldFor(id, FIELD_SLOT.get(id));
-    return held ? { stated: held.stated, origin: originOf(held, this.index) } : undefined;
+    return held ? { stated: held.stated, origin: originOf(held, this.index, this.time) } : undefined;
   }
 
   numberOf(id: string): number | null {
@@ -1258,7 +1261,7 @@ const MASK_BITS = 30;
 if (FIELDS.length > 2 * MASK_BITS) throw new Error('timeline: too many fields for the bits of fields measured at a timepoint');
 
 function freeze(index: number, line: number | null, label: string, startLine: number, time: TimepointTime, stated: readonly StatedValue[], endLine: number, state: CarryState, settings: Settings): Timepoint {
-  const values = new ValuesAt(index, state, stated);
+  const values = new ValuesAt(index, time, state, stated);
   const gasUnit = gasUnitInForce(state, settings);
   return new TimepointAt(index, line, label, startLine, endLine, time, stated, values, barometricAt(state.place, settings), gasUnit, gasUnitWritten(stated) ?? gasUnit);
 }
@@ -1292,10 +1295,10 @@ function gasUnitWritten(stated: readonly StatedValue[]): 'mmHg' | 'kPa' | null {
   return unit;
 }
 
-function originOf(held: Held, tp: number): Origin {
+function originOf(held: Held, tp: number, at: TimepointTime): Origin {
   const { line } = held.stated;
   const span = held.stated.item.span;
   if (held.timepoint === tp) return { kind: 'here', line, span };
   if (held.timepoint < 0) return { kind: 'header', line, span };
-  return { kind: 'carried', line, span, timepoint: held.timepoint, timepointLabel: held.label };
+  return { kind: 'carried', line, span, timepoint: held.timepoint, timepointLabel: held.label, fromTime: held.time, atTime: at };
 }

@@ -8,6 +8,7 @@ import { forBand } from '../physiology/numeric';
 import { toRange } from '../syntax/tree';
 import { formatShort } from '../util/format';
 import { defineCheck } from './check';
+import { carriedFromText } from '../present';
 
 /** Below this PEEP the two readings of `pinsp` are too close to tell apart (our threshold). */
 const MIN_PEEP_CMH2O = 5;
@@ -55,7 +56,7 @@ export const peakNearAbsolutePinsp = defineCheck({
       fixes: here && value && written === pinsp
         ? [{ title: `Write \`pinsp ${above}\` (the level less PEEP)`, edits: [{ range: toRange(stated.line, value.span), newText: above }], preferred: false }]
         : [],
-      ...(origin.kind === 'carried' || origin.kind === 'header' ? { related: [{ range: toRange(origin.line, origin.span), message: 'carried from here' }] } : {}),
+      ...(origin.kind === 'carried' || origin.kind === 'header' ? { related: [{ range: toRange(origin.line, origin.span), message: origin.kind === 'carried' ? carriedFromText(origin, 'here') : 'carried from here' }] } : {}),
     });
   },
 });

@@ -10,6 +10,7 @@ import { toRange } from '../syntax/tree';
 import { decimalsAgainst, formatShort } from '../util/format';
 import { defineCheck, type TimepointContext } from './check';
 import { deviceInForce, endExpiratoryField, nivPressuresNotGiven } from '../analysis/noninvasive-support';
+import { carriedFromText } from '../present';
 
 function orderCheck(ctx: TimepointContext, lowId: string, highId: string, message: (low: number, high: number) => string): void {
   const tp = ctx.timepoint;
@@ -28,7 +29,7 @@ function orderCheck(ctx: TimepointContext, lowId: string, highId: string, messag
     range: toRange(here.input.stated.line, here.input.stated.item.span),
     message: message(low.value, high.value),
     ...(o.kind !== 'default' && o.kind !== 'here'
-      ? { related: [{ range: toRange(o.line, o.span), message: 'carried from here' }] }
+      ? { related: [{ range: toRange(o.line, o.span), message: o.kind === 'carried' ? carriedFromText(o, 'here') : 'carried from here' }] }
       : {}),
   });
 }

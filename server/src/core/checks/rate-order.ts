@@ -7,6 +7,7 @@ import { MODES_WITH_SET_BREATHS } from '../physiology';
 import { toRange } from '../syntax/tree';
 import { formatShort } from '../util/format';
 import { defineCheck } from './check';
+import { carriedFromText } from '../present';
 
 export { MODES_WITH_SET_BREATHS };
 
@@ -42,7 +43,7 @@ export const rateBelowSet = defineCheck({
       range: toRange(rr.stated.line, rr.stated.item.span),
       message: `Measured respiratory rate ${formatShort(measured)} /min is below the set rate ${formatShort(set)} /min in ${mode}, which delivers every set breath: check both rates.`,
       ...(o.kind === 'carried' || o.kind === 'here' || o.kind === 'header'
-        ? { related: [{ range: toRange(o.line, o.span), message: o.kind === 'carried' ? `set rate ${formatShort(set)} /min, carried from here` : `set rate ${formatShort(set)} /min` }] }
+        ? { related: [{ range: toRange(o.line, o.span), message: o.kind === 'carried' ? `set rate ${formatShort(set)} /min, ${carriedFromText(o, 'here')}` : `set rate ${formatShort(set)} /min` }] }
         : {}),
     });
   },
@@ -80,7 +81,7 @@ export const setRateZero = defineCheck({
       range: toRange(anchor.line, here ? anchor.item.value?.span ?? anchor.item.span : anchor.item.span),
       message: `Set rate 0 /min in ${word}, which delivers mandatory breaths: no breath would be given unless the patient triggers one. Check the rate and the mode; minute ventilation is ${values.originOf('rr') === 'here' ? 'worked out from the measured rate' : 'not worked out from a rate of 0'}.`,
       ...(!here && (o.kind === 'carried' || o.kind === 'header')
-        ? { related: [{ range: toRange(o.line, o.span), message: 'set rate 0 /min, carried from here' }] }
+        ? { related: [{ range: toRange(o.line, o.span), message: o.kind === 'carried' ? `set rate 0 /min, ${carriedFromText(o, 'here')}` : 'set rate 0 /min, carried from here' }] }
         : {}),
     });
   },

@@ -8,6 +8,7 @@
  */
 import type { CheckDef } from './check';
 import { tidalVolumePerKg } from './vt-per-kg';
+import { oldSettingCarried } from './old-setting';
 import { badShorthand, badTime, highFlowPercent, venturiSetting, decimalComma, duplicateKey, missingValue, otherUnitLikely, strayText, unitNotAllowed, unknownKey, unknownSection, unknownUnit, unknownWord } from './collected';
 import { pao2AboveAlveolar } from './alveolar-limit';
 import { occultHypoxaemiaCheck } from './occult-hypoxaemia';
@@ -70,6 +71,7 @@ export const CHECKS: readonly CheckDef[] = validateCheckList([
   highFlowPercent,
   gasAboveFio2Change,
   tidalVolumePerKg,
+  oldSettingCarried,
   pao2AboveAlveolar,
   gasInconsistent,
   tidalVolumeHigh,

@@ -8,7 +8,7 @@ import { ANION_GAP_UPPER_NORMAL_MMOL_L, BERLIN_BAND_SEVERITY, HCO3_CENTRE_MMOL_L
 import { sideOf } from '../physiology/numeric';
 import type { Settings } from '../settings';
 import { formatAgainst, formatNumber, formatShort, rangeAgainst, wordList, writtenDecimals } from '../util/format';
-import { kpaFromMmhg, kpaNumber, kpaResolutionMmhg, showsKpa, statedKpaNumber, statedNumber } from '../present';
+import { carriedFromText, kpaFromMmhg, kpaNumber, kpaResolutionMmhg, showsKpa, statedKpaNumber, statedNumber } from '../present';
 import type { StatedValue } from '../analysis/model';
 import { classification } from './acid-base';
 import { GAS_KPA, GAS_MMHG, GasWords, offThreshold } from './gas-words';
@@ -526,14 +526,15 @@ function carriedLine(t: Term): number {
   return t.origin.kind === 'carried' ? t.origin.line : -1;
 }
 
+/** `carried from line 3`; `carried from day 1 10:00, line 3` from another day (`carriedFromText`). */
 function carriedFrom(t: Term): string {
-  return `carried from line ${carriedLine(t) + 1}`;
+  return t.origin.kind === 'carried' ? carriedFromText(t.origin, 'line') : '';
 }
 
 /** `FiO2 0.60`, with where it came from when it was carried: `FiO2 0.60 (carried from line 3)`. */
 function fio2Words(fio2: Term): string {
   const value = `FiO2 ${formatNumber(fio2.value, 2)}`;
-  return fio2.origin.kind === 'carried' ? `${value} (carried from line ${fio2.origin.line + 1})` : value;
+  return fio2.origin.kind === 'carried' ? `${value} (${carriedFromText(fio2.origin, 'line')})` : value;
 }
 
 /** What the acid–base reading names besides the classification: how the PaCO2 was written, and which anion gap was used. */
