@@ -243,10 +243,11 @@ describe('big outputs', () => {
 
 describe('output larger than memory', () => {
   it('is written with a heap far smaller than the output (built command)', async () => {
-    // 150 notes of 20 timepoints: about 65 MB of JSON, written by a process allowed 48 MB of heap.
+    // 150 notes of 20 timepoints: about 65 MB of indented JSON (piped it would be compact, about
+    // half), written by a process allowed 48 MB of heap.
     const dir = mkdtempSync(join(tmpdir(), 'pneumark-big-'));
     for (let i = 0; i < 150; i++) writeFileSync(join(dir, `note-${String(i).padStart(3, '0')}.pneu`), generateNote(20, i + 1));
-    const child = spawn(process.execPath, ['--max-old-space-size=48', join(process.cwd(), 'dist/cli.js'), 'check', '--format', 'json', '--jobs', '0', '.'], { cwd: dir });
+    const child = spawn(process.execPath, ['--max-old-space-size=48', join(process.cwd(), 'dist/cli.js'), 'check', '--format', 'json', '--indented', '--jobs', '0', '.'], { cwd: dir });
     let bytes = 0;
     let tail = '';
     child.stdout.on('data', (chunk: Buffer) => { bytes += chunk.length; tail = (tail + chunk.toString('latin1')).slice(-200); });
@@ -304,18 +305,20 @@ describe('parallel runs', () => {
     for (let i = 0; i < 40; i++) writeFileSync(join(dir, `note-${String(i).padStart(2, '0')}.pneu`), `@ 08:00\nvitals spo2 ${90 + (i % 15)}\nabg 7.40/40/${60 + i}/24.4\n`);
     const cli = join(process.cwd(), 'dist/cli.js');
     const runWith = (workers: string, args: string[]) => spawnSync(process.execPath, [cli, ...args], { cwd: dir, encoding: 'utf8', env: { ...process.env, PNEUMARK_WORKERS: workers, NO_COLOR: '1' } });
-    for (const args of [['check', '.'], ['check', '--format', 'json', '.'], ['export', '--format', 'csv', '.']]) {
+    // JSON piped is compact; indented (--indented) and version 2 are written by the workers too.
+    for (const args of [['check', '.'], ['check', '--format', 'json', '.'], ['check', '--format', 'json', '--indented', '.'], ['check', '--format', 'json', '--json-version', '2', '.'], ['export', '--format', 'csv', '.']]) {
       const single = runWith('0', args);
       const parallel = runWith('2', args);
       expect(parallel.status, parallel.stderr).toBe(single.status);
       expect(parallel.stdout).toBe(single.stdout);
+      if (args.includes('--json-version')) expect(Object.keys((JSON.parse(single.stdout) as { definitions: object }).definitions)).toContain('pf_ratio');
       // --jobs wins over the environment either way.
       const [command, ...rest] = args;
       const byOption = runWith('0', [command!, '--jobs', '3', ...rest]);
       expect(byOption.stdout).toBe(single.stdout);
       expect(runWith('2', [command!, '--jobs', '0', ...rest]).stdout).toBe(single.stdout);
     }
-    // Twelve runs of the built command, each starting Node and, in four of them, worker threads:
-    // some 17 s on this 2-core machine when it is otherwise idle.
-  }, 90_000);
+    // Twenty runs of the built command, each starting Node and, in eight of them, worker threads:
+    // some 28 s on this 2-core machine when it is otherwise idle.
+  }, 150_000);
 });

@@ -78,7 +78,13 @@ Options:
   check: `Usage: pneumark check PATH... [options]
 
 Options:
-  --format text|json|sarif   output format (default text); sarif is SARIF 2.1.0 for code-scanning tools
+  --format text|json|sarif   output format (default text); sarif is SARIF 2.1.0 for code-scanning tools;
+                             json is indented on a terminal, else compact (a line per note)
+  --json-version 1|2         json: the shape's version (default 1); 2 writes each derived value's
+                             formula and source once, in a table of the run at the end, and leaves
+                             out the null members of origins (see README.md, "JSON output")
+  --indented                 json: indent it even when standard output is not a terminal (a file
+                             or a pager for people to read)
   --quiet                    list error findings only (text, json and sarif; totals count all)
   --redact                   keep the notes' own words out of the output, for sharing a report of a
                              dataset: name each note by its place in the run (note-00001 …, paths

@@ -26,7 +26,7 @@ import { REDACTED_WORD } from '../core/export/columns';
 import { notePseudonym } from '../core/export/pseudonym';
 import { aloneLimits } from './analyse-alone';
 import { gather, type BatchDone, type WorkDone, type WorkItem } from './pool';
-import { CheckJsonWriter, countOutcome, jsonFileEntryOrProblem, writeCheckSarif, writeCheckText, type FileOutcome } from './render-check';
+import { CheckJsonWriter, countOutcome, jsonFileEntryOrProblem, writeCheckSarif, writeCheckText, type FileOutcome, type JsonLayout } from './render-check';
 import type { SeverityCounts } from './render-show';
 import { renderShow } from './render-show';
 import { Output } from './output';
@@ -132,6 +132,8 @@ const checkOptions = z.object({
   progress: z.boolean().default(true),
   stdinName: stdinNameOption,
   redact: z.boolean().default(false),
+  jsonVersion: z.enum(['1', '2']).optional(),
+  indented: z.boolean().default(false),
 });
 
 /**
@@ -144,9 +146,12 @@ function redactedReport(report: FileReport, index: number): FileReport {
 }
 
 async function check(args: readonly string[], io: Io): Promise<number> {
-  const { positionals, values } = parse(args, { format: { type: 'string' }, quiet: { type: 'boolean' }, 'max-warnings': { type: 'string' }, exclude: { type: 'string', multiple: true }, jobs: { type: 'string' }, 'no-progress': { type: 'boolean' }, 'stdin-name': { type: 'string' }, redact: { type: 'boolean' } });
+  const { positionals, values } = parse(args, { format: { type: 'string' }, quiet: { type: 'boolean' }, 'max-warnings': { type: 'string' }, exclude: { type: 'string', multiple: true }, jobs: { type: 'string' }, 'no-progress': { type: 'boolean' }, 'stdin-name': { type: 'string' }, redact: { type: 'boolean' }, 'json-version': { type: 'string' }, indented: { type: 'boolean' } });
   if (values.help) { io.stdout.write(`${HELP.check}\n`); return EXIT.ok; }
-  const opts = validate(checkOptions, { format: values.format, quiet: values.quiet, maxWarnings: values['max-warnings'], exclude: values.exclude, jobs: values.jobs, progress: !values['no-progress'], stdinName: values['stdin-name'], redact: values.redact }, { progress: '--no-progress' });
+  const opts = validate(checkOptions, { format: values.format, quiet: values.quiet, maxWarnings: values['max-warnings'], exclude: values.exclude, jobs: values.jobs, progress: !values['no-progress'], stdinName: values['stdin-name'], redact: values.redact, jsonVersion: values['json-version'], indented: values.indented }, { progress: '--no-progress' });
+  if (opts.format !== 'json' && (opts.jsonVersion !== undefined || opts.indented)) throw new UsageError(`${opts.jsonVersion !== undefined ? '--json-version' : '--indented'} applies to --format json only`);
+  // Indented for people (a terminal, or --indented), compact for programs: the same JSON value.
+  const layout: JsonLayout = { version: opts.jsonVersion === '2' ? 2 : 1, indented: opts.indented || io.stdout.isTTY === true };
   if (positionals.length === 0) throw new UsageError('check needs at least one file, folder, pattern or - (stdin)');
   const stdinName = opts.stdinName === undefined ? null : shownFilePath(opts.stdinName, io.cwd);
   const { files, problems, stdinExcluded } = listInputs(positionals, io.cwd, opts.exclude, stdinName);
@@ -164,13 +169,13 @@ async function check(args: readonly string[], io: Io): Promise<number> {
   // JSON (with every timepoint) is written a note at a time as the notes come in, in their order,
   // and each note's timepoints are let go once written.
   const output = new Output(io.stdout);
-  const json = opts.format === 'json' ? new CheckJsonWriter(output, opts.quiet) : null;
+  const json = opts.format === 'json' ? new CheckJsonWriter(output, opts.quiet, layout) : null;
   if (json) for (const o of unread) json.file(o);
   const streaming = json ? {
     inOrder: (r: FileReport, i: number): FileReport => written(r, json.file(named(r, i))),
     ready: () => output.ready(),
   } : undefined;
-  const reports = await gather(files, { kind: 'check', timepoints: json !== null, errorsOnly: opts.quiet, redact }, io, worker, opts.progress && !(json && io.stdout.isTTY), 'checking', opts.jobs, streaming);
+  const reports = await gather(files, { kind: 'check', timepoints: json !== null, errorsOnly: opts.quiet, redact, layout }, io, worker, opts.progress && !(json && io.stdout.isTTY), 'checking', opts.jobs, streaming);
   const outcomes: FileOutcome[] = [...unread, ...(json ? reports : reports.map(named))];
   const p: Paint = paint(colourWanted(io.stdout, io.env));
   if (json) {
@@ -261,7 +266,8 @@ function workerMain(): void {
   const withEntry = (r: FileReport): FileReport => {
     if (r.timepoints === undefined && r.timepointTexts === undefined) return r;
     const { timepoints: _inEntry, timepointTexts: _written, ...rest } = r;
-    const { entry, problem } = jsonFileEntryOrProblem(r, data.task.kind === 'check' && data.task.errorsOnly === true);
+    const check = data.task.kind === 'check' ? data.task : null;
+    const { entry, problem } = jsonFileEntryOrProblem(r, check?.errorsOnly === true, check?.layout);
     return { ...rest, entry, problem };
   };
   const noStdin = (): Buffer => Buffer.alloc(0);

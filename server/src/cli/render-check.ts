@@ -1,7 +1,9 @@
 /**
  * `pneumark check` output. Text: one line per finding, `path:line:col  severity  code  message`.
- * JSON: the stable shape documented in README.md ("JSON output"), version 1. SARIF 2.1.0. All
- * three are written in pieces (a big folder's output is larger than one string can hold).
+ * JSON: the stable shapes documented in README.md ("JSON output"), version 1 and, with
+ * `--json-version 2`, version 2; indented for people (standard output a terminal, or `--indented`),
+ * else compact with one line per note. SARIF 2.1.0. All three are written in pieces (a big
+ * folder's output is larger than one string can hold).
  */
 import { constants } from 'node:buffer';
 import { sep } from 'node:path';
@@ -12,6 +14,21 @@ import type { Finding } from '../core/types';
 import type { Paint } from './colour';
 import { countSeverities, type SeverityCounts } from './render-show';
 import { visible } from './visible';
+import type { JsonDefinition, KeyedDefinition } from './timepoints-json';
+
+/**
+ * How `check --format json` is written: its version (1, or 2 with the run's definitions in a
+ * table), and indented (two spaces a level, as `JSON.stringify(…, null, 2)`) or compact (no space
+ * between tokens; a line break before each note's entry and before the end of the list of files,
+ * so each note is one line).
+ */
+export interface JsonLayout {
+  readonly version: 1 | 2;
+  readonly indented: boolean;
+}
+
+/** Version 1, indented: what `check --format json` wrote before layouts were chosen. */
+export const INDENTED_V1: JsonLayout = { version: 1, indented: true };
 
 export interface FileOutcome {
   readonly path: string;
@@ -29,6 +46,8 @@ export interface FileOutcome {
   readonly entry?: string;
   /** Every finding of the note by severity, when `findings` keeps only the errors (`--quiet`). */
   readonly counts?: SeverityCounts;
+  /** Version 2: the definitions the note's derived values point to (each once), for the run's table. */
+  readonly definitions?: readonly KeyedDefinition[];
 }
 
 /** Adds a note's findings by severity to `into`: every finding, also those `--quiet` did not keep. */
@@ -149,17 +168,21 @@ export function toJsonFinding(f: Finding): JsonFinding {
 
 /**
  * Writes the JSON output a note at a time (a folder of notes with their timepoints makes gigabytes
- * of JSON: more than one string can hold): `file` for each note in order, then `end`. The bytes are
- * those of `JSON.stringify` of the whole object with two-space indentation. With `errorsOnly`
- * (`--quiet`) each note lists its error findings only; the summary still counts every finding.
+ * of JSON: more than one string can hold): `file` for each note in order, then `end`. Indented, the
+ * bytes are those of `JSON.stringify` of the whole object with two-space indentation; compact,
+ * those of `JSON.stringify` of it with a line break before each note's entry and before the `]`
+ * that ends the list of files (when it is not empty). With `errorsOnly` (`--quiet`) each note lists
+ * its error findings only; the summary still counts every finding. Version 2 ends with the table of
+ * the definitions the notes' derived values point to, by key in sorted order.
  */
 export class CheckJsonWriter {
   private readonly total: SeverityCounts = { error: 0, warning: 0, information: 0, hint: 0 };
   private files = 0;
   private unreadable = 0;
+  private readonly definitions = new Map<string, JsonDefinition>();
 
-  constructor(private readonly out: { write(s: string): unknown }, private readonly errorsOnly = false) {
-    out.write('{\n  "pneumark": 1,\n  "files": [');
+  constructor(private readonly out: { write(s: string): unknown }, private readonly errorsOnly = false, private readonly layout: JsonLayout = INDENTED_V1) {
+    out.write(layout.indented ? `{\n  "pneumark": ${layout.version},\n  "files": [` : `{"pneumark":${layout.version},"files":[`);
   }
 
   /**
@@ -169,9 +192,11 @@ export class CheckJsonWriter {
    */
   file(o: FileOutcome): string | null {
     countOutcome(o, this.total);
-    const { parts, problem } = o.entry !== undefined ? { parts: [o.entry], problem: o.problem } : jsonFileEntryPartsOrProblem(o, this.errorsOnly);
+    const { parts, problem } = o.entry !== undefined ? { parts: [o.entry], problem: o.problem } : jsonFileEntryPartsOrProblem(o, this.errorsOnly, this.layout);
     if (problem) this.unreadable++;
-    let piece = `${this.files++ === 0 ? '' : ','}\n    `;
+    // An entry that had to leave its timepoints out points to no definition.
+    if (o.definitions !== undefined && problem !== TOO_MUCH_JSON && problem !== TOO_MANY_FINDINGS) this.define(o.definitions);
+    let piece = `${this.files++ === 0 ? '' : ','}\n${this.layout.indented ? '    ' : ''}`;
     for (const part of parts) {
       if (piece.length > 0 && piece.length + part.length > GATHER) {
         this.out.write(piece);
@@ -183,11 +208,26 @@ export class CheckJsonWriter {
     return problem;
   }
 
-  /** Closes the list of files and writes the summary (no line break after the closing brace). */
+  /** Adds a note's definitions to the run's table; one key is one definition (see `definitionKey`). */
+  private define(list: readonly KeyedDefinition[]): void {
+    for (const d of list) {
+      const known = this.definitions.get(d.key);
+      if (known === undefined) this.definitions.set(d.key, { formula: d.formula, source: d.source });
+      else if (known.formula !== d.formula || known.source !== d.source) throw new Error(`two definitions have the key ${d.key}`);
+    }
+  }
+
+  /** Closes the list of files and writes the summary, and in version 2 the definitions (no line break after the closing brace). */
   end(): void {
     const t = this.total;
     const summary = { files: this.files, unreadable: this.unreadable, errors: t.error, warnings: t.warning, information: t.information, hints: t.hint };
-    this.out.write(`${this.files === 0 ? '' : '\n  '}],\n  "summary": ${nested(summary, '  ')}\n}`);
+    const keys = [...this.definitions.keys()].sort((a, b) => (a < b ? -1 : a > b ? 1 : 0));
+    const table = this.layout.version === 2 ? Object.fromEntries(keys.map((k) => [k, this.definitions.get(k)!])) : null;
+    if (this.layout.indented) {
+      this.out.write(`${this.files === 0 ? '' : '\n  '}],\n  "summary": ${nested(summary, '  ')}${table === null ? '' : `,\n  "definitions": ${nested(table, '  ')}`}\n}`);
+    } else {
+      this.out.write(`${this.files === 0 ? '' : '\n'}],"summary":${JSON.stringify(summary)}${table === null ? '' : `,"definitions":${JSON.stringify(table)}`}}`);
+    }
   }
 }
 
@@ -196,12 +236,13 @@ export class CheckJsonWriter {
  * only). A worker writes it out itself: a string crosses to the main thread in one copy, where the
  * timepoints as objects would be cloned one by one.
  */
-export function jsonFileEntry(o: FileOutcome, errorsOnly = false): string {
-  return jsonFileEntryParts(o, errorsOnly).join('');
+export function jsonFileEntry(o: FileOutcome, errorsOnly = false, layout: JsonLayout = INDENTED_V1): string {
+  return jsonFileEntryParts(o, errorsOnly, layout).join('');
 }
 
-/** The list of timepoints that ends an entry with timepoints, as written before they are put in. */
+/** The list of timepoints that ends an entry with timepoints, as written before they are put in (indented, compact). */
 const NO_TIMEPOINTS = '"timepoints": []';
+const NO_TIMEPOINTS_COMPACT = '"timepoints":[]';
 
 /**
  * `jsonFileEntry`'s text in parts, which joined are that text: the entry with an empty list of
@@ -210,23 +251,27 @@ const NO_TIMEPOINTS = '"timepoints": []';
  * indent them, cost seconds on a note of thousands of timepoints, where the pieces stay small.
  * Throws a RangeError when the whole would be more than one string holds, as the whole would.
  */
-function jsonFileEntryParts(o: FileOutcome, errorsOnly: boolean): string[] {
+function jsonFileEntryParts(o: FileOutcome, errorsOnly: boolean, layout: JsonLayout): string[] {
   const findings = (errorsOnly ? o.findings.filter((f) => f.severity === 'error') : o.findings).map(toJsonFinding);
   const texts = o.timepointTexts;
   const timepoints = texts ?? o.timepoints;
-  if (timepoints === undefined) return [nested({ path: o.path, problem: o.problem, findings }, '    ')];
+  const indented = layout.indented;
+  const entry = (value: unknown): string => (indented ? nested(value, '    ') : JSON.stringify(value));
+  if (timepoints === undefined) return [entry({ path: o.path, problem: o.problem, findings })];
   // `timepoints` is the last member: its empty list is the last one in the text.
-  const whole = nested({ path: o.path, problem: o.problem, findings, timepoints: [] }, '    ');
+  const whole = entry({ path: o.path, problem: o.problem, findings, timepoints: [] });
   if (timepoints.length === 0) return [whole];
-  const at = whole.lastIndexOf(NO_TIMEPOINTS);
-  const parts: string[] = [`${whole.slice(0, at)}"timepoints": [`];
+  const empty = indented ? NO_TIMEPOINTS : NO_TIMEPOINTS_COMPACT;
+  const at = whole.lastIndexOf(empty);
+  const parts: string[] = [`${whole.slice(0, at)}${empty.slice(0, -1)}`];
   let length = parts[0]!.length;
+  const before = indented ? '\n        ' : '';
   for (let i = 0; i < timepoints.length; i++) {
-    const part = `${i === 0 ? '' : ','}\n        ${texts === undefined ? timepointText(timepoints[i]) : texts[i]!}`;
+    const part = `${i === 0 ? '' : ','}${before}${texts === undefined ? timepointText(timepoints[i], indented) : texts[i]!}`;
     parts.push(part);
     length += part.length;
   }
-  const end = `\n      ]${whole.slice(at + NO_TIMEPOINTS.length)}`;
+  const end = `${indented ? '\n      ' : ''}]${whole.slice(at + empty.length)}`;
   parts.push(end);
   length += end.length;
   if (length > MAX_STRING_LENGTH) throw new RangeError('Invalid string length');
@@ -245,31 +290,31 @@ export const TOO_MANY_FINDINGS = 'its findings make more JSON than one string ca
  * that says so, so the run goes on and ends with exit code 2; when its findings alone make too
  * much (a note of a million bare timepoints has a finding on each), its entry without either.
  */
-export function jsonFileEntryOrProblem(o: FileOutcome, errorsOnly = false): { readonly entry: string; readonly problem: string | null } {
-  const { parts, problem } = jsonFileEntryPartsOrProblem(o, errorsOnly);
+export function jsonFileEntryOrProblem(o: FileOutcome, errorsOnly = false, layout: JsonLayout = INDENTED_V1): { readonly entry: string; readonly problem: string | null } {
+  const { parts, problem } = jsonFileEntryPartsOrProblem(o, errorsOnly, layout);
   return { entry: parts.join(''), problem };
 }
 
 /** `jsonFileEntryOrProblem` with the entry in parts (see `jsonFileEntryParts`). */
-function jsonFileEntryPartsOrProblem(o: FileOutcome, errorsOnly: boolean): { readonly parts: readonly string[]; readonly problem: string | null } {
+function jsonFileEntryPartsOrProblem(o: FileOutcome, errorsOnly: boolean, layout: JsonLayout): { readonly parts: readonly string[]; readonly problem: string | null } {
   try {
-    return { parts: jsonFileEntryParts(o, errorsOnly), problem: o.problem };
+    return { parts: jsonFileEntryParts(o, errorsOnly, layout), problem: o.problem };
   } catch (error) {
     if (!(error instanceof RangeError)) throw error;
   }
   if (o.timepoints || o.timepointTexts) {
     try {
-      return { parts: jsonFileEntryParts({ path: o.path, findings: o.findings, problem: TOO_MUCH_JSON }, errorsOnly), problem: TOO_MUCH_JSON };
+      return { parts: jsonFileEntryParts({ path: o.path, findings: o.findings, problem: TOO_MUCH_JSON }, errorsOnly, layout), problem: TOO_MUCH_JSON };
     } catch (error) {
       if (!(error instanceof RangeError)) throw error;
     }
   }
-  return { parts: jsonFileEntryParts({ path: o.path, findings: [], problem: TOO_MANY_FINDINGS }, errorsOnly), problem: TOO_MANY_FINDINGS };
+  return { parts: jsonFileEntryParts({ path: o.path, findings: [], problem: TOO_MANY_FINDINGS }, errorsOnly, layout), problem: TOO_MANY_FINDINGS };
 }
 
-/** A timepoint's JSON (see `timepointsJson`) as it is nested in its note's entry, in the list of timepoints. */
-export function timepointText(timepoint: unknown): string {
-  return nested(timepoint, '        ');
+/** A timepoint's JSON (see `timepointsJson`) as it is nested in its note's entry, in the list of timepoints (`indented`, or compact). */
+export function timepointText(timepoint: unknown, indented = true): string {
+  return indented ? nested(timepoint, '        ') : JSON.stringify(timepoint) ?? 'null';
 }
 
 /**
@@ -289,9 +334,9 @@ function nested(value: unknown, indent: string): string {
   return json.slice(levels * (levels + 3), json.length - levels * (levels + 1));
 }
 
-export function renderCheckJson(outcomes: readonly FileOutcome[]): string {
+export function renderCheckJson(outcomes: readonly FileOutcome[], layout: JsonLayout = INDENTED_V1): string {
   let text = '';
-  const writer = new CheckJsonWriter({ write: (s: string) => { text += s; } });
+  const writer = new CheckJsonWriter({ write: (s: string) => { text += s; } }, false, layout);
   for (const o of outcomes) writer.file(o);
   writer.end();
   return text;

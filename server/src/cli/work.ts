@@ -14,14 +14,16 @@ import { NONE } from '../core/util/lists';
 import { ProjectConfigs } from '../node/project-config';
 import { isBlankNote, noteFromBytes, NO_NOTE, readNoteBytes, redactedProblem, shownPath, type NoteBytes, type NoteInput } from './inputs';
 import { countSeverities, type SeverityCounts } from './render-show';
-import { timepointText } from './render-check';
-import { timepointsJson } from './timepoints-json';
+import { INDENTED_V1, timepointText, type JsonLayout } from './render-check';
+import { timepointsJson, timepointsJsonV2, timepointV2, type JsonTimepoint, type KeyedDefinition } from './timepoints-json';
 
 export type Task =
   | {
     readonly kind: 'check'; readonly timepoints: boolean; /** `--quiet`: the JSON entries list error findings only. */ readonly errorsOnly?: boolean;
     /** `--redact`: the note named by its place in the run, and its own words left out of what is written (see core/export/redact.ts). */
     readonly redact?: boolean;
+    /** How the JSON is written (version, indentation); version 1 indented when not given. */
+    readonly layout?: JsonLayout;
   }
   | { readonly kind: 'export'; readonly format: 'csv' | 'jsonl' | 'fhir'; readonly redactProse: boolean; readonly shiftDays: number; readonly anchor: string | null; /** `--spreadsheet-safe` (CSV). */ readonly spreadsheetSafe: boolean };
 
@@ -41,6 +43,8 @@ export interface FileReport {
   readonly timepointTexts?: readonly string[];
   /** `check --format json` in a worker: the note's entry in the output, written out (the timepoints left out above). */
   readonly entry?: string;
+  /** `check --format json --json-version 2`: the definitions the note's derived values point to. */
+  readonly definitions?: readonly KeyedDefinition[];
   /** `export`: what the format needs for this note (rows, lines or a bundle). */
   readonly payload?: unknown;
 }
@@ -120,9 +124,17 @@ export class NoteWorker {
       // until its entry is written, not the objects they are written from.
       // Redacted, the note's own words (quoted, its labels, a mode of its own) are left out of
       // the findings and the timepoints' texts (see core/export/redact.ts).
+      // Redacted, version 2 is made from version 1's object after redaction: a definition's key is
+      // made from its text as written.
       const own = redact ? noteOwnWords(result) : null;
-      const written = own === null ? timepointText : (json: unknown) => timepointText(redactedJson(json, own));
-      const timepoints = task.timepoints ? { timepointTexts: timepointsJson(result, written) } : {};
+      const layout = task.layout ?? INDENTED_V1;
+      const used = layout.version === 2 ? new Map<string, KeyedDefinition>() : null;
+      const text = (json: unknown): string => timepointText(json, layout.indented);
+      const texts = (): string[] => {
+        if (own !== null) return timepointsJson(result, (json) => text(used === null ? redactedJson(json, own) : timepointV2(redactedJson(json, own) as JsonTimepoint, used)));
+        return used === null ? timepointsJson(result, text) : timepointsJsonV2(result, used, text);
+      };
+      const timepoints = task.timepoints ? { timepointTexts: texts(), ...(used === null ? {} : { definitions: [...used.values()] }) } : {};
       // `--quiet` shows errors only and counts the rest: only the counts of the others are kept
       // (and cross back from a worker), not a hundred thousand findings of a big folder.
       const kept = task.errorsOnly ? result.findings.filter((f) => f.severity === 'error') : result.findings;
