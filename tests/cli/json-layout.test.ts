@@ -30,14 +30,14 @@ function folder(): string {
   return dir;
 }
 
-interface V2Origin { kind: string; line?: number; timepoint?: number; description?: string; derived?: string }
+interface V2Origin { kind: string; line?: number; timepoint?: number; description?: string; derived?: string; carriedMinutes?: number }
 interface V2Derived { id: string; value: unknown; low?: unknown; high?: unknown; unit: string; definition: string; substituted: string; estimate: boolean; usesCarried: boolean; inputs: { name: string; value: unknown; unit: string; origin: V2Origin; note?: string }[]; notes: string[] }
 interface V2Timepoint { values: { origin: V2Origin }[]; derived: V2Derived[] }
 interface V2 { pneumark: number; files: { timepoints?: V2Timepoint[] }[]; summary: unknown; definitions: Record<string, { formula: string; source: string }> }
 
 /** Version 1 as rebuilt from version 2 alone: the origins' null members put back, each definition's formula and source in place of its key. */
 function v1FromV2(v2: V2): unknown {
-  const origin = (o: V2Origin) => ({ kind: o.kind, line: o.line ?? null, timepoint: o.timepoint ?? null, description: o.description ?? null, ...(o.derived !== undefined ? { derived: o.derived } : {}) });
+  const origin = (o: V2Origin) => ({ kind: o.kind, line: o.line ?? null, timepoint: o.timepoint ?? null, description: o.description ?? null, ...(o.derived !== undefined ? { derived: o.derived } : {}), ...(o.kind === 'carried' ? { carriedMinutes: o.carriedMinutes ?? null } : {}) });
   const definition = (key: string) => {
     const found = v2.definitions[key];
     if (found === undefined) throw new Error(`no definition ${key}`);

@@ -123,7 +123,10 @@ function originJsonV2(o: InputOrigin): Partial<JsonOrigin> & Pick<JsonOrigin, 'k
   switch (o.kind) {
     case 'derived': return { kind: 'derived', derived: o.id };
     case 'default': return { kind: 'default', description: o.description };
-    case 'carried': return { kind: 'carried', line: o.line + 1, timepoint: o.timepoint };
+    case 'carried': {
+      const minutes = carriedMinutes(o);
+      return minutes === null ? { kind: 'carried', line: o.line + 1, timepoint: o.timepoint } : { kind: 'carried', line: o.line + 1, timepoint: o.timepoint, carriedMinutes: minutes };
+    }
     default: return { kind: o.kind, line: o.line + 1 };
   }
 }
@@ -229,11 +232,12 @@ export function definitionKey(id: string, formula: string, source: string): Keye
 
 /** An origin in version 2: its members that are not null. */
 function originV2(o: JsonOrigin): Partial<JsonOrigin> & Pick<JsonOrigin, 'kind'> {
-  const out: { kind: JsonOrigin['kind']; line?: number; timepoint?: number; description?: string; derived?: string } = { kind: o.kind };
+  const out: { kind: JsonOrigin['kind']; line?: number; timepoint?: number; description?: string; derived?: string; carriedMinutes?: number } = { kind: o.kind };
   if (o.line !== null) out.line = o.line;
   if (o.timepoint !== null) out.timepoint = o.timepoint;
   if (o.description !== null) out.description = o.description;
   if (o.derived !== undefined) out.derived = o.derived;
+  if (o.carriedMinutes !== undefined && o.carriedMinutes !== null) out.carriedMinutes = o.carriedMinutes;
   return out;
 }
 
