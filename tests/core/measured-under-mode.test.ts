@@ -96,6 +96,13 @@ describe('a measurement is not carried', () => {
     expect([inForce(tps[1], 'vt'), inForce(tps[2], 'vt'), inForce(tps[2], 'peep')]).toEqual([undefined, undefined, 5]);
   });
 
+  it('at one timepoint, a volume written above the line that sets PS is of that timepoint only', () => {
+    // Every line of a timepoint describes the same moment (grammar/README.md): the volume was measured under PS.
+    const tps = timepoints('@ 08:00\nvent mode VC, vt 450, rate 14, peep 5\n@ 09:00\nvent vt 400, rate 20\nvent mode PS, ps 10\n@ 10:00\nvitals rr 20\n');
+    expect([inForce(tps[1], 'vt'), tps[1]?.values.get('vt')?.stated.hereOnly, inForce(tps[1], 'vent_rate'), inForce(tps[1], 'mode')]).toEqual([400, true, 20, 'PS']);
+    expect([inForce(tps[2], 'vt'), inForce(tps[2], 'vent_rate'), inForce(tps[2], 'peep')]).toEqual([undefined, 20, 5]);
+  });
+
   it('a vent line that only measures a volume under PS ends nothing and holds nothing', () => {
     const tps = timepoints('@ 09:00\nvent mode PS, ps 10, peep 8\n@ 10:00\nvent vt 410\n@ 11:00\nvitals rr 20\n');
     expect([inForce(tps[1], 'vt'), inForce(tps[1], 'mode'), inForce(tps[2], 'vt'), inForce(tps[2], 'mode')]).toEqual([410, 'PS', undefined, 'PS']);

@@ -961,9 +961,14 @@ function apply(section: SectionId, stated: (StatedValue | undefined)[], from: nu
         const modeWord = mode.word;
         const kept = !before ? null : isOscillation(modeWord) || isOscillation(before) ? KEPT_ACROSS_OSCILLATION : KEPT_ACROSS_MODES;
         // Settings stated at this timepoint on an earlier vent line stay: every line of a timepoint
-        // describes the same moment (`vent vt 400, rate 20` then `vent mode PS, ps 10`).
-        const keeps = ([id, held]: [string, Held]): boolean => held.timepoint === tp || ((kept === null || kept.includes(id)) && !isMeasuredUnder(held.stated.field, modeWord));
-        if (kept !== null || [...base].some((e) => !keeps(e))) base = new Map([...base].filter(keeps));
+        // describes the same moment (`vent vt 400, rate 20` then `vent mode PS, ps 10`); for that
+        // reason a value there that the new mode measures (that `vt 400`) is its measurement, read
+        // again as of this timepoint only.
+        const keeps = ([id, held]: [string, Held]): boolean => !isMeasuredUnder(held.stated.field, modeWord) && (held.timepoint === tp || kept === null || kept.includes(id));
+        if (kept !== null || [...base].some((e) => !keeps(e))) {
+          for (const e of base) if (e[1].timepoint === tp && !keeps(e)) measuredAbove(stated, from, e[1].stated);
+          base = new Map([...base].filter(keeps));
+        }
       }
       state.vent = hold(base, stated, from, to, tp, label);
       break;
@@ -989,6 +994,11 @@ function statesVentSetting(stated: (StatedValue | undefined)[], from: number, to
   }
   if (volumes > 0) for (let k = from; k < to; k++) if (stated[k]!.fieldId === 'vt') stated[k] = new ReadAs(stated[k]!, true);
   return false;
+}
+
+/** Reads `held`, stated on a line above `stated[from]` at this timepoint and held as a setting, as a measurement of its timepoint (`ReadAs`). */
+function measuredAbove(stated: (StatedValue | undefined)[], from: number, held: StatedValue): void {
+  for (let k = 0; k < from; k++) if (stated[k] === held) stated[k] = new ReadAs(held, true);
 }
 
 /**
