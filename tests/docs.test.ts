@@ -273,6 +273,10 @@ const SPEC_LINES: Readonly<Record<string, readonly string[] | { readonly on: str
   '@ day 2 0800': ['PN104'],
   'vent peak 15, ve 8': [],
   'vent vt 480, peak 16': [],
+  // Set or measured, by mode: a tidal volume under PS is of its timepoint only (no finding says so).
+  'vent mode PS, ps 10, peep 8, vt 380': [],
+  'vent vt 450': [],
+  'vent mode PS, ps 10': [],
   'hr 80': [],
   'hr 118 rr 26': [],
   'hr 118, rr 26': [],

@@ -33,6 +33,8 @@ const fieldSchema = z
     words: z.record(z.string(), z.string()).optional(),
     openWords: z.boolean().optional(),
     reading: z.boolean().optional(),
+    measuredIn: z.array(z.enum(['volume', 'adaptive', 'pressure', 'spontaneous', 'oscillation'])).optional(),
+    setIn: z.array(z.enum(['volume', 'adaptive', 'pressure', 'spontaneous', 'oscillation'])).optional(),
     decimals: z.number().int().min(0).max(3),
   })
   .strict();

@@ -11,7 +11,8 @@
  * under NIV or CPAP its tidal volume is the measured one, of its timepoint) and updates the ventilator settings it restates,
  * keeping the rest (a change of mode keeps only PEEP and FiO2, a change to or from HFOV only
  * FiO2); measurements (vitals, gases,
- * labs) and device readings never carry.
+ * labs) and device readings never carry, nor does a value the mode in force measures rather than
+ * sets (a tidal volume under PS: the field registry's `measuredIn`, per mode family).
  *
  * Incremental: the note is processed block by block (the lines before the first `@`, then one
  * block per timepoint). Given the previous run's `TimelineCache`, a block whose line nodes are
@@ -42,6 +43,7 @@ import type { ItemNode, LineEdit, LineFix, LineNode, NoteTree, SectionLine, Span
 import { itemsRemovalSpan } from '../syntax/tree';
 import { MAX_DAY } from '../syntax/parser';
 import { OSCILLATION_MODE } from '../physiology/mechanics';
+import { isMeasuredUnder, modeFamily } from '../fields/modes';
 import { PER_KG_PBW, pbwFrom, VT_PER_KG_HARD_MAX } from './per-kg-volume';
 import { barometricFromAltitude } from './ambient';
 import { noninvasiveSupport } from './noninvasive-support';
@@ -944,20 +946,31 @@ function apply(section: SectionId, stated: (StatedValue | undefined)[], from: nu
       perKgVolumes(stated, from, to, state.patient);
       const mode = firstOf(stated, from, to, 'mode');
       const before = state.vent.get('mode')?.stated.word;
-      // In HFOV the mean airway pressure is set, not read off the breaths: held like a setting.
-      const modeAfter = mode?.word ?? before;
-      if (modeAfter && isOscillation(modeAfter)) asSettings(stated, from, to, 'mean_airway_pressure');
+      // Under the mode in force each value is a setting or a measurement as its field's row says for
+      // the mode's family (fields/modes.ts): a tidal volume under PS is measured, of its timepoint
+      // only; the mean airway pressure in HFOV is set, held like a setting.
+      const modeAfter = mode?.word ?? before ?? null;
+      readByMode(stated, from, to, modeAfter);
       // A line of readings only (`vent peak 15, ve 8`) starts no ventilation: the support in force stays.
       if (!statesVentSetting(stated, from, to, state.oxygen)) break;
       state.oxygen = EMPTY;
       // A new mode starts a new set of settings; PEEP and FiO2 carry across it. Modes are words of
-      // any case: one outside the registry's (`ASV`, then `asv`) is the same mode restated.
+      // any case: one outside the registry's (`ASV`, then `asv`) is the same mode restated. A mode
+      // written where none was held keeps what was held but what it measures (`vent vt 450` then
+      // `vent mode PS, ps 10`: the volume is no setting under PS).
       let base = state.vent;
-      if (mode?.word && before && mode.word.toLowerCase() !== before.toLowerCase()) {
-        const kept = isOscillation(mode.word) || isOscillation(before) ? KEPT_ACROSS_OSCILLATION : KEPT_ACROSS_MODES;
+      if (mode?.word && mode.word.toLowerCase() !== before?.toLowerCase()) {
+        const modeWord = mode.word;
+        const kept = !before ? null : isOscillation(modeWord) || isOscillation(before) ? KEPT_ACROSS_OSCILLATION : KEPT_ACROSS_MODES;
         // Settings stated at this timepoint on an earlier vent line stay: every line of a timepoint
-        // describes the same moment (`vent vt 400, rate 20` then `vent mode PS, ps 10`).
-        base = new Map([...base].filter(([id, held]) => kept.includes(id) || held.timepoint === tp));
+        // describes the same moment (`vent vt 400, rate 20` then `vent mode PS, ps 10`); for that
+        // reason a value there that the new mode measures (that `vt 400`) is its measurement, read
+        // again as of this timepoint only.
+        const keeps = ([id, held]: [string, Held]): boolean => !isMeasuredUnder(held.stated.field, modeWord) && (held.timepoint === tp || kept === null || kept.includes(id));
+        if (kept !== null || [...base].some((e) => !keeps(e))) {
+          for (const e of base) if (e[1].timepoint === tp && !keeps(e)) measuredAbove(stated, from, e[1].stated);
+          base = new Map([...base].filter(keeps));
+        }
       }
       state.vent = hold(base, stated, from, to, tp, label, time);
       break;
@@ -985,9 +998,23 @@ function statesVentSetting(stated: (StatedValue | undefined)[], from: number, to
   return false;
 }
 
-/** Makes the values of field `id` among `stated[from, to)` settings (held and carried), though their field is a reading. */
-function asSettings(stated: (StatedValue | undefined)[], from: number, to: number, id: string): void {
-  for (let k = from; k < to; k++) if (stated[k]!.fieldId === id && stated[k]!.hereOnly) stated[k] = new ReadAs(stated[k]!, false);
+/** Reads `held`, stated on a line above `stated[from]` at this timepoint and held as a setting, as a measurement of its timepoint (`ReadAs`). */
+function measuredAbove(stated: (StatedValue | undefined)[], from: number, held: StatedValue): void {
+  for (let k = 0; k < from; k++) if (stated[k] === held) stated[k] = new ReadAs(held, true);
+}
+
+/**
+ * Reads each value among `stated[from, to)`, a vent line's, as a setting or a measurement under
+ * `mode` (`isMeasuredUnder`: the field's row for the mode's family). Under no mode, or one the
+ * registry does not list, each stays as its field says.
+ */
+function readByMode(stated: (StatedValue | undefined)[], from: number, to: number, mode: string | null): void {
+  if (modeFamily(mode) === null) return;
+  for (let k = from; k < to; k++) {
+    const s = stated[k]!;
+    const hereOnly = isMeasuredUnder(s.field, mode);
+    if (hereOnly !== s.hereOnly) stated[k] = new ReadAs(s, hereOnly);
+  }
 }
 
 /**
@@ -1001,9 +1028,10 @@ function givesBreaths(oxygen: HeldMap): boolean {
 
 /**
  * A value read as a reading of its timepoint though its field is a setting (`hereOnly`: a tidal
- * volume on a vent line of readings under NIV, see `statesVentSetting`), in force where it is stated
- * and never carried; or as a setting though its field is a reading (the mean airway pressure set
- * on an oscillator, see `asSettings`), held and carried.
+ * volume on a vent line of readings under NIV, see `statesVentSetting`, or one written under a
+ * mode that sets a pressure, see `readByMode`), in force where it is stated and never carried; or
+ * as a setting though its field is a reading (the mean airway pressure set on an oscillator, see
+ * `readByMode`), held and carried.
  */
 class ReadAs extends ValueAsRead {
   constructor(read: StatedValue, readonly hereOnly: boolean) { super(read); }

@@ -6,6 +6,7 @@
 import type { InputValue, Timepoint, ValuesInForce } from '../analysis/model';
 import type { SectionId } from '../fields/sections';
 import { fieldById } from '../fields/registry';
+import { measuredByMode } from '../fields/modes';
 import { displayUnit } from '../analysis/read-value';
 import { endExpiratoryField, givesNoSetPressure, givesPressure, noninvasiveSupport, supportOfPressure, type NoninvasiveSupport } from '../analysis/noninvasive-support';
 import type { Settings } from '../settings';
@@ -445,6 +446,22 @@ export class DeriveContext {
   value(value: number | null, terms: readonly (Term | null)[], extra: ValueExtras = NO_EXTRAS): Outcome {
     if (value === null || !Number.isFinite(value)) return NOT_IN_DOMAIN;
     return { kind: 'value', value, terms: withoutNulls(terms), extras: extra };
+  }
+
+  /** Whether the mode in force measures field `id` rather than sets it, though a setting by default (a tidal volume under PS: fields/modes.ts). */
+  measuredByMode(id: string): boolean {
+    const field = fieldById(id);
+    return field !== undefined && measuredByMode(field, this.word('mode')?.word ?? null);
+  }
+
+  /**
+   * What to add for field `id` where it is missing: its key; where the mode in force measures it
+   * (`measuredByMode`) the measured value at this timepoint, since one of an earlier timepoint is
+   * not carried (`add the measured vt at this timepoint`).
+   */
+  need(id: string): string {
+    const key = fieldById(id)?.aliases[0] ?? id;
+    return this.measuredByMode(id) ? `the measured ${key} at this timepoint` : key;
   }
 
   /** What to add to get another derived value (its own missing inputs), for messages. */

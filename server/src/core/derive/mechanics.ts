@@ -31,16 +31,27 @@ export const minuteVentilation = defineDerived({
   anchors: ['vt', 'vent_rate', 'rr'],
   compute(c) {
     const vt = c.field('vt', 'VT');
-    if (!vt) return { kind: 'na', reason: 'needs a tidal volume' };
+    // Where the mode measures the volume (PS, PC), none is carried from an earlier timepoint: asked for.
+    if (!vt && !askedVolume(c)) return { kind: 'na', reason: 'needs a tidal volume' };
     const hfov = c.oscillation();
     if (hfov) return hfov;
     const rr = c.respiratoryRate();
+    if (!vt) return c.missing([vt, c.need('vt')], [rr, 'rr']);
     // A set rate of 0 gives no minute ventilation of 0: withheld where it is a mistake (PN312),
     // else a measured rate is asked for (in a spontaneous mode the patient sets the rate).
     if (!rr) return c.zeroSetRate() ?? c.missing([rr, 'rr']);
     return c.value(minuteVentilationLPerMin(vt.value, rr.value), [vt, rr]);
   },
 });
+
+/**
+ * Whether a missing tidal volume is asked for rather than the value left unmentioned: where the mode
+ * in force measures it (PS, PC: one of an earlier timepoint is not carried), but not in HFOV, where
+ * what is worked out from breaths is not (`oscillation`).
+ */
+function askedVolume(c: DeriveContext): boolean {
+  return c.measuredByMode('vt') && c.oscillation() === null;
+}
 
 /** Age (years) from which the ARDS Network's predicted body weight is worked out: the trial's adults (ARDS Network 2000, from memory; the equation is for adults only, read in the abstract of BMC Pulm Med 2017, doi 10.1186/s12890-017-0427-1). */
 export const PBW_ADULT_FROM_YEARS = ADULT_FROM_YEARS;
@@ -100,7 +111,7 @@ export const vtPerKg = defineDerived({
       const none = withoutPbw(c);
       if (none) return none;
     }
-    if (!vt || !p) return c.missing([vt, 'vt'], [p, c.lacking('predicted_body_weight')]);
+    if (!vt || !p) return c.missing([vt, c.need('vt')], [p, c.lacking('predicted_body_weight')]);
     const perKg = vtPerKgPbw(vt.value, p.value);
     // Shown beside the 8 mL/kg top of the lung-protective range (PN403): 8.04 as 8.04, not 8.0.
     const decimals = perKg === null ? undefined : decimalsAgainst(perKg, 1, LUNG_PROTECTIVE_VT_MAX_ML_PER_KG);
@@ -169,7 +180,7 @@ export const complianceStaticDef = defineDerived({
     const hfov = c.oscillationBreath();
     if (hfov) return hfov;
     const peep = c.peepLike();
-    if (!vt || !peep) return c.missing([vt, 'vt'], [peep, c.peepNeed()]);
+    if (!vt || !peep) return c.missing([vt, c.need('vt')], [peep, c.peepNeed()]);
     return c.value(complianceStatic(vt.value, plat.value, peep.value), [vt, plat, peep], formulaExtras('{VT} ÷ ({Pplat} − {PEEP})', peep));
   },
 });
@@ -191,7 +202,7 @@ export const complianceDynamicDef = defineDerived({
     const hfov = c.oscillationBreath();
     if (hfov) return hfov;
     const peep = c.peepLike();
-    if (!vt || !peep) return c.missing([vt, 'vt'], [peep, c.peepNeed()]);
+    if (!vt || !peep) return c.missing([vt, c.need('vt')], [peep, c.peepNeed()]);
     return c.value(complianceDynamic(vt.value, peak.value, peep.value), [vt, peak, peep], formulaExtras('{VT} ÷ ({Ppeak} − {PEEP})', peep));
   },
 });
@@ -248,7 +259,7 @@ export const mechanicalPower = defineDerived({
       const withheld = c.zeroSetRate();
       if (withheld) return withheld;
     }
-    if (!rr || !vt || !peep) return c.missing([rr, 'rr'], [vt, 'vt'], [peep, 'peep']);
+    if (!rr || !vt || !peep) return c.missing([rr, 'rr'], [vt, c.need('vt')], [peep, 'peep']);
     return c.value(mechanicalPowerSimplified(rr.value, vt.value, peak.value, plat.value, peep.value), [rr, vt, peak, plat, peep]);
   },
 });
@@ -312,7 +323,7 @@ export const ventilatoryRatioDef = defineDerived({
   source: `${SOURCES['sinha-2009']} ${SOURCES['sinha-2019']}`,
   anchors: ['paco2'],
   compute(c) {
-    if (!c.field('vt') && !c.field('minute_volume')) return { kind: 'na', reason: 'needs ventilation (vt and rate, or measured ve)' };
+    if (!c.field('vt') && !c.field('minute_volume') && !askedVolume(c)) return { kind: 'na', reason: 'needs ventilation (vt and rate, or measured ve)' };
     const hfov = c.oscillation();
     if (hfov) return hfov;
     const ve = c.field('minute_volume', 'VE') ?? c.derived('minute_ventilation', 'VE');

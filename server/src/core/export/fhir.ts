@@ -101,6 +101,7 @@ import { noninvasiveSupport, SUPPORT_NAMES, type NoninvasiveSupport } from '../a
 import type { DerivedValue } from '../derive/model';
 import { derivedValueOf } from '../derive/registry';
 import { FIELDS, loincFor, type FieldDef, type LoincCode } from '../fields/registry';
+import { measuredByMode } from '../fields/modes';
 import { unitById } from '../fields/units';
 import type { SectionId } from '../fields/sections';
 import { assertExportOptions, writtenLabel } from './columns';
@@ -247,15 +248,6 @@ export interface WrittenAs {
 
 const NOTHING_MORE: WrittenAs = { key: null, device: null, mode: null, support: null };
 
-/**
- * Settings some ventilator modes do not set, with those modes: a value written under one of them was
- * delivered or measured, not set. No set tidal volume under pressure-controlled or -supported
- * breaths; no set inspiratory flow there either, nor under PRVC (the flow follows the pressure).
- */
-const NOT_SET_UNDER: ReadonlyMap<string, { readonly what: string; readonly modes: ReadonlySet<string> }> = new Map([
-  ['vt', { what: 'tidal volume', modes: new Set(['PC', 'PS', 'APRV', 'CPAP', 'HFOV']) }],
-  ['insp_flow', { what: 'inspiratory flow', modes: new Set(['PC', 'PRVC', 'PS', 'APRV', 'CPAP', 'HFOV']) }],
-]);
 
 /**
  * Why a LOINC code does not fit a value of `field` stated in `section`, read from what the code's
@@ -272,10 +264,12 @@ export function loincMismatch(loinc: LoincCode, field: FieldDef, section: Sectio
   if (/\bsetting\b/.test(name) && reading) return `${loinc.code} is a setting, the value is a reading`;
   if (/--on ventilator\b/.test(name) && !reading) return `${loinc.code} is measured on the ventilator, the value is a setting`;
   // A volume or a flow written under a mode that sets none was delivered, so it was measured.
-  const notSet = NOT_SET_UNDER.get(field.id);
+  // Settings some ventilator modes do not set (the registry's `measuredIn`, per mode family: no set tidal
+  // volume under pressure-controlled or -supported breaths, no set inspiratory flow there nor under PRVC).
+  const notSet = field.measuredIn !== undefined ? field.label.toLowerCase() : null;
   // Under NIV or CPAP with no ventilator mode, a tidal volume is one the device measured (a vent line of readings).
-  if (notSet && /\bsetting\b/.test(name) && written.mode === null && written.support !== null) return `${loinc.code} is a set ${notSet.what}, and ${SUPPORT_NAMES[written.support]} sets none`;
-  if (notSet && /\bsetting\b/.test(name) && written.mode !== null && notSet.modes.has(written.mode)) return `${loinc.code} is a set ${notSet.what}, and ${written.mode} sets none`;
+  if (notSet && /\bsetting\b/.test(name) && written.mode === null && written.support !== null) return `${loinc.code} is a set ${notSet}, and ${SUPPORT_NAMES[written.support]} sets none`;
+  if (notSet && /\bsetting\b/.test(name) && written.mode !== null && measuredByMode(field, written.mode)) return `${loinc.code} is a set ${notSet}, and ${written.mode} sets none`;
   // A high-flow device's flow is the total gas flow (air and oxygen blended to the FiO2), not the oxygen flow.
   if (/^Inhaled oxygen flow rate\b/.test(name) && device === 'hfnc') return `${loinc.code} is the oxygen flow, the value is the total gas flow of a high-flow device`;
   if (name.includes('[Mass/volume]') && field.dimension !== 'mass-concentration') return `${loinc.code} is a mass concentration, the value is not`;

@@ -6,6 +6,7 @@ import { VT_USUAL_MIN_ML_PER_KG } from '../analysis/bounds';
 import { displayUnit } from '../analysis/read-value';
 import { FIELDS, loincCodesOf, loincFor, type FieldDef, type LoincCode } from './registry';
 import { SECTIONS } from './sections';
+import { modesOfFamilies } from './modes';
 import { UNITS } from './units';
 import { DERIVED_TABLE_END, DERIVED_TABLE_START, renderDerivedTable } from '../derive/docs';
 import { BLANK_TABLE_END, BLANK_TABLE_START, renderBlankTable } from '../syntax/blanks';
@@ -80,6 +81,15 @@ function renderUnitTable(): string[] {
   return out;
 }
 
+/**
+ * Whether a field's values carry, as the field table says it beside its name: a reading does not; one
+ * measured under some mode families (`measuredIn`) or set under some (`setIn`) names those modes.
+ */
+function carryNote(f: FieldDef): string {
+  if (f.reading) return f.setIn ? ` (measured, does not carry; set in ${modesOfFamilies(f.setIn).join(', ')}, where it carries)` : ' (measured, does not carry)';
+  return f.measuredIn ? ` (measured under ${modesOfFamilies(f.measuredIn).join(', ')}: does not carry there)` : '';
+}
+
 export function renderFieldTable(): string {
   const out: string[] = [FIELD_TABLE_START, ''];
   for (const s of SECTIONS) {
@@ -92,7 +102,7 @@ export function renderFieldTable(): string {
       const code = loincFor(f, s.id);
       const byKey = Object.entries(f.loincByKey ?? {}).map(([key, c]) => `; written \`${key}\`: ${loincCell(c)}`).join('');
       const loinc = code ? `${loincCell(code)}${byKey}` : '—';
-      out.push(`| ${f.aliases.map((a) => `\`${a}\``).join(', ')} | ${f.label}${f.reading ? ' (measured, does not carry)' : ''} | ${units} | ${bounds(f.hard)} | ${bounds(f.soft)} | ${loinc} |`);
+      out.push(`| ${f.aliases.map((a) => `\`${a}\``).join(', ')} | ${f.label}${carryNote(f)} | ${units} | ${bounds(f.hard)} | ${bounds(f.soft)} | ${loinc} |`);
     }
     out.push('');
   }

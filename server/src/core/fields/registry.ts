@@ -15,6 +15,7 @@
  */
 import type { SectionId } from './sections';
 import type { Dimension } from './units';
+import type { ModeFamily } from './modes';
 
 export type FieldKind = 'number' | 'pair' | 'word';
 
@@ -76,6 +77,13 @@ export interface FieldDef {
    * it belongs to its timepoint and does not carry forward like a setting.
    */
   readonly reading?: boolean;
+  /**
+   * Ventilator mode families (fields/modes.ts) under which a vent-line value of this field, a setting
+   * by default, is measured: in force at its timepoint only, never carried (a tidal volume under PS).
+   */
+  readonly measuredIn?: readonly ModeFamily[];
+  /** Mode families under which a value of this field, a reading by default, is set and carried (the mean airway pressure in HFOV). */
+  readonly setIn?: readonly ModeFamily[];
   /** Decimal places used when the value is written back or shown. */
   readonly decimals: number;
 }
@@ -152,13 +160,13 @@ const ROWS: readonly FieldDef[] = [
   { id: 'epap', label: 'EPAP', short: 'EPAP', description: 'Expiratory positive airway pressure (non-invasive ventilation); counts as PEEP.', sections: ['oxygen'], aliases: ['epap'], kind: 'number', dimension: 'airway-pressure', unit: 'cmH2O', units: ['cmH2O', 'mbar'], hard: { min: 0, max: 30 }, soft: { max: 20 }, boundsSource: CP, decimals: 0 },
   { id: 'cpap_level', label: 'CPAP', short: 'CPAP', description: 'Continuous positive airway pressure level; counts as PEEP.', sections: ['oxygen'], aliases: ['level', 'pressure'], kind: 'number', dimension: 'airway-pressure', unit: 'cmH2O', units: ['cmH2O', 'mbar'], hard: { min: 0, max: 30 }, soft: { max: 20 }, boundsSource: CP, decimals: 0 },
   { id: 'mode', label: 'Ventilator mode', description: 'Ventilation mode, one word (e.g. VC, PC, PS, SIMV, APRV).', sections: ['vent'], aliases: ['mode'], kind: 'word', openWords: true, words: { vc: 'VC', pc: 'PC', prvc: 'PRVC', ps: 'PS', simv: 'SIMV', aprv: 'APRV', cpap: 'CPAP', hfov: 'HFOV' }, decimals: 0 },
-  { id: 'vt', label: 'Tidal volume', short: 'VT', description: 'Tidal volume (set or delivered).', sections: ['vent'], aliases: ['vt', 'tidal', 'tv'], kind: 'number', dimension: 'volume', unit: 'mL', units: ['mL', 'L', 'mL/kg'], hard: { min: 0, max: 3000 }, soft: { min: 50, max: 1200 }, boundsSource: `${CP}; the usual minimum is 2 mL per kg of body size (the smaller of the weight and the predicted body weight in force; half the ARDS Network protocol's 4 mL/kg), 50 mL (2 mL/kg of the 25 kg soft minimum of weight) where the note gives neither`, loinc: { code: '20112-9', display: 'Tidal volume setting Ventilator' }, decimals: 0 },
+  { id: 'vt', label: 'Tidal volume', short: 'VT', description: 'Tidal volume (set in volume modes and PRVC; measured, and of its timepoint only, where the mode sets a pressure: PC, APRV, PS, CPAP, HFOV).', sections: ['vent'], aliases: ['vt', 'tidal', 'tv'], kind: 'number', dimension: 'volume', unit: 'mL', units: ['mL', 'L', 'mL/kg'], hard: { min: 0, max: 3000 }, soft: { min: 50, max: 1200 }, boundsSource: `${CP}; the usual minimum is 2 mL per kg of body size (the smaller of the weight and the predicted body weight in force; half the ARDS Network protocol's 4 mL/kg), 50 mL (2 mL/kg of the 25 kg soft minimum of weight) where the note gives neither`, loinc: { code: '20112-9', display: 'Tidal volume setting Ventilator' }, measuredIn: ['pressure', 'spontaneous', 'oscillation'], decimals: 0 },
   { id: 'vent_rate', label: 'Set rate', description: 'Set ventilator rate; in HFOV the oscillation frequency, usually written in Hz (1 Hz = 60 /min).', sections: ['vent'], aliases: ['rate', 'f', 'set_rate'], kind: 'number', dimension: 'rate', unit: '/min', units: ['/min', 'Hz'], hard: { min: 0, max: 1200 }, soft: { max: 60 }, boundsSource: `${CP}; oscillators are set from about 3 to 15 Hz (180–900 /min, from memory), so up to 20 Hz (1200 /min) is possible, and in HFOV the usual range is 3–15 Hz rather than at most 60 /min`, decimals: 0 },
   { id: 'peep', label: 'PEEP', short: 'PEEP', description: 'Positive end-expiratory pressure.', sections: ['vent'], aliases: ['peep'], kind: 'number', dimension: 'airway-pressure', unit: 'cmH2O', units: ['cmH2O', 'mbar'], hard: { min: 0, max: 50 }, soft: { max: 25 }, boundsSource: CP, loinc: { code: '20077-4', display: 'Positive end expiratory pressure setting Ventilator', source: SEEN.saner }, decimals: 0 },
   { id: 'plateau', label: 'Plateau pressure', description: 'End-inspiratory plateau pressure (inspiratory hold).', sections: ['vent'], aliases: ['plateau', 'pplat'], kind: 'number', dimension: 'airway-pressure', unit: 'cmH2O', units: ['cmH2O', 'mbar'], hard: { min: 0, max: 100 }, soft: { max: 40 }, boundsSource: CP, loinc: { code: '76259-1', display: 'Pressure.plateau Respiratory system airway --on ventilator', source: SEEN.miiPlateau }, reading: true, decimals: 0 },
   { id: 'peak', label: 'Peak pressure', description: 'Peak inspiratory airway pressure.', sections: ['vent'], aliases: ['peak', 'ppeak', 'pip'], kind: 'number', dimension: 'airway-pressure', unit: 'cmH2O', units: ['cmH2O', 'mbar'], hard: { min: 0, max: 120 }, soft: { max: 50 }, boundsSource: CP, loinc: { code: '76531-3', display: 'Pressure.max Respiratory system airway --on ventilator', source: SEEN.miiVentLoinc }, reading: true, decimals: 0 },
-  { id: 'insp_flow', label: 'Inspiratory flow', description: 'Set inspiratory flow (constant-flow volume control).', sections: ['vent'], aliases: ['flow', 'insp_flow'], kind: 'number', dimension: 'flow', unit: 'L/min', units: ['L/min', 'L/s'], hard: { min: 0, max: 200 }, soft: { min: 10, max: 120 }, boundsSource: CP, loinc: { code: '76275-7', display: 'Inspiratory flow setting Ventilator', source: SEEN.miiVentLoinc }, decimals: 0 },
-  { id: 'mean_airway_pressure', label: 'Mean airway pressure', description: 'Mean airway pressure, for the oxygenation index; measured on conventional modes, set in HFOV (where it carries as a setting).', sections: ['vent'], aliases: ['map', 'mawp', 'pmean', 'mpaw'], kind: 'number', dimension: 'airway-pressure', unit: 'cmH2O', units: ['cmH2O', 'mbar'], hard: { min: 0, max: 60 }, soft: { max: 35 }, boundsSource: CP, loinc: { code: '76530-5', display: 'Mean pressure Respiratory system airway --on ventilator', source: SEEN.miiVentLoinc }, reading: true, decimals: 0 },
+  { id: 'insp_flow', label: 'Inspiratory flow', description: 'Inspiratory flow (set in constant-flow volume control, VC and SIMV; measured, and of its timepoint only, under PRVC and where the mode sets a pressure: PC, APRV, PS, CPAP, HFOV).', sections: ['vent'], aliases: ['flow', 'insp_flow'], kind: 'number', dimension: 'flow', unit: 'L/min', units: ['L/min', 'L/s'], hard: { min: 0, max: 200 }, soft: { min: 10, max: 120 }, boundsSource: CP, loinc: { code: '76275-7', display: 'Inspiratory flow setting Ventilator', source: SEEN.miiVentLoinc }, measuredIn: ['adaptive', 'pressure', 'spontaneous', 'oscillation'], decimals: 0 },
+  { id: 'mean_airway_pressure', label: 'Mean airway pressure', description: 'Mean airway pressure, for the oxygenation index; measured on conventional modes, set in HFOV (where it carries as a setting).', sections: ['vent'], aliases: ['map', 'mawp', 'pmean', 'mpaw'], kind: 'number', dimension: 'airway-pressure', unit: 'cmH2O', units: ['cmH2O', 'mbar'], hard: { min: 0, max: 60 }, soft: { max: 35 }, boundsSource: CP, loinc: { code: '76530-5', display: 'Mean pressure Respiratory system airway --on ventilator', source: SEEN.miiVentLoinc }, reading: true, setIn: ['oscillation'], decimals: 0 },
   // `dp` and `delta_p` are no keys of the amplitude: ΔP names the driving pressure (plateau − PEEP).
   { id: 'amplitude', label: 'Oscillation amplitude', description: 'Pressure amplitude of high-frequency oscillation (HFOV): the peak-to-trough swing of pressure around the mean airway pressure.', sections: ['vent'], aliases: ['amplitude', 'amp'], kind: 'number', dimension: 'airway-pressure', unit: 'cmH2O', units: ['cmH2O', 'mbar'], hard: { min: 0, max: 150 }, soft: { min: 10, max: 90 }, boundsSource: `${CP}; from memory, oscillators are set from about 10 cmH2O (small infants) to about 90 cmH2O (adults), and none delivers a swing of 150 cmH2O`, decimals: 0 },
   { id: 'pressure_support', label: 'Pressure support', description: 'Pressure support above PEEP.', sections: ['vent'], aliases: ['ps', 'support'], kind: 'number', dimension: 'airway-pressure', unit: 'cmH2O', units: ['cmH2O', 'mbar'], hard: { min: 0, max: 50 }, soft: { max: 30 }, boundsSource: CP, loinc: { code: '20079-0', display: 'Pressure support setting Ventilator', source: SEEN.saner }, decimals: 0 },
@@ -201,7 +209,7 @@ function oneShape(f: FieldDef): FieldDef {
   return {
     id: f.id, label: f.label, short: f.short, description: f.description, sections: f.sections, aliases: f.aliases, kind: f.kind,
     dimension: f.dimension, unit: f.unit, units: f.units, bare: f.bare, hard: f.hard && oneBounds(f.hard), soft: f.soft && oneBounds(f.soft), doubt: f.doubt && oneBounds(f.doubt),
-    boundsSource: f.boundsSource, loinc: f.loinc, loincBySection: f.loincBySection, loincByKey: f.loincByKey, words: f.words, openWords: f.openWords, reading: f.reading, decimals: f.decimals,
+    boundsSource: f.boundsSource, loinc: f.loinc, loincBySection: f.loincBySection, loincByKey: f.loincByKey, words: f.words, openWords: f.openWords, reading: f.reading, measuredIn: f.measuredIn, setIn: f.setIn, decimals: f.decimals,
   };
 }
 

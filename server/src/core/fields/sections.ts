@@ -39,7 +39,7 @@ export const SECTIONS: readonly SectionDef[] = [
   { id: 'abg', aliases: ['art', 'arterial'], kind: 'measure', description: 'Arterial blood gas; shorthand pH/PaCO2/PaO2/HCO3 allowed.' },
   { id: 'vbg', aliases: ['venous'], kind: 'measure', description: 'Venous blood gas; shorthand pH/PvCO2/PvO2/HCO3 allowed.' },
   { id: 'labs', aliases: ['lab', 'chem'], kind: 'measure', description: 'Laboratory values at this timepoint.' },
-  { id: 'vent', aliases: ['ventilator', 'mv'], kind: 'setting', description: 'Ventilator settings, which carry forward until restated, and values measured on the ventilator (plateau, peak, mean airway pressure, minute volume, EtCO2), which belong to their timepoint.' },
+  { id: 'vent', aliases: ['ventilator', 'mv'], kind: 'setting', description: 'Ventilator settings, which carry forward until restated, and values measured on the ventilator (plateau, peak, mean airway pressure, minute volume, EtCO2; the tidal volume and the flow under a mode that does not set them), which belong to their timepoint.' },
   { id: 'note', aliases: ['text', 'comment'], kind: 'prose', description: 'Free prose to the end of the line.' },
 ];
 

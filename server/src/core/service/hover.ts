@@ -15,6 +15,7 @@ import { withheldText, type DerivedValue, type NotApplicable, type TimepointDeri
 import { derivedDef, withheldByReason } from '../derive/registry';
 import { shortAsName } from '../derive/context';
 import { fieldFor, fieldsInSection, loincFor, type FieldDef } from '../fields/registry';
+import { measuredByMode } from '../fields/modes';
 import { sectionById, type SectionId } from '../fields/sections';
 import { describeInput, formatAlternative, formatStated, readUnitName, statedInKpa } from '../present';
 import type { SectionLine, TimepointLine } from '../syntax/tree';
@@ -95,7 +96,7 @@ function fieldMarkdown(result: NoteResult, node: SectionLine, hit: ItemHit): str
   } else if (hit.item.value) {
     parts.push(`${code(hit.item.value.text)} could not be read as ${escapeMarkdown(field.label)}.`);
   }
-  parts.push(carryText(field, node.section, stated));
+  parts.push(carryText(field, node.section, stated, stated ? timepointOfLine(result, stated.line)?.values.wordOf('mode') ?? null : null));
   parts.push(loincText(field, node.section, hit.item.keyName));
   parts.push(cautionLine());
   return paragraphs(parts);
@@ -280,8 +281,12 @@ function feedsText(result: NoteResult, s: StatedValue): string | null {
   return parts.length > 0 ? parts.join('\n\n') : null;
 }
 
-function carryText(field: FieldDef, section: SectionId, stated: StatedValue | null): string {
+function carryText(field: FieldDef, section: SectionId, stated: StatedValue | null, mode: string | null): string {
   const kind = sectionById(section).kind;
+  // A value the mode in force measures rather than sets (a tidal volume under PS: fields/modes.ts).
+  if (kind === 'setting' && stated?.hereOnly === true && mode !== null && measuredByMode(field, mode)) {
+    return `Carries forward: no — under ${escapeMarkdown(mode)} the ${escapeMarkdown(field.label.toLowerCase())} is measured, not set: that mode does not set it, so it is in force at this timepoint only; the settings on this line carry forward.`;
+  }
   // The mean airway pressure an oscillator is set to.
   if (kind === 'setting' && field.reading && stated !== null && !stated.hereOnly) {
     return 'Carries forward: yes, in HFOV the mean airway pressure is set: until restated, a change of mode or an `oxygen` line.';
