@@ -30,6 +30,17 @@ describe('lexer', () => {
     expect(span).toEqual({ start: 7, end: 11 });
   });
 
+  it('gives a shorter line a list of exactly its words, and a longer one after it all of its own', () => {
+    expect(wordsOf('vitals hr 80, rr 18, spo2 95 %').length).toBe(8);
+    const short = wordsOf('note ok');
+    expect(short.map((w) => w.text)).toEqual(['note', 'ok']);
+    expect(short.length).toBe(2);
+    expect(wordsOf('').length).toBe(0);
+    expect(wordsOf('a b c').map((w) => w.text)).toEqual(['a', 'b', 'c']);
+    expect(wordsOf('vent peep 5, vt 400 mL').map((w) => w.text)).toEqual(['vent', 'peep', '5', 'vt', '400', 'mL']);
+    releaseWords();
+  });
+
   it('lets go of the texts of the words it handed out', () => {
     const words = wordsOf('note a long word: pneumothoraces');
     releaseWords();
