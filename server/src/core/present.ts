@@ -248,7 +248,7 @@ export function carriedFromText(origin: CarriedOrigin, naming: 'label' | 'line' 
   return `carried from ${label ? `${label}, ` : ''}${when !== null ? `${when}, ` : ''}line ${origin.line + 1}`;
 }
 
-/** Minutes from the timepoint a carried value was stated at to the one it is in force at; null where either time is unknown. */
+/** Minutes from the timepoint a carried value was stated at to the one it is in force at (below 0 where the note's times go back, PN308); null where either time is unknown. */
 export function carriedMinutes(origin: CarriedOrigin): number | null {
   return origin.fromTime.minutes !== null && origin.atTime.minutes !== null ? origin.atTime.minutes - origin.fromTime.minutes : null;
 }
