@@ -3,29 +3,16 @@
 // force at. P/F = PaO2 ÷ FiO2 (ARDS Definition Task Force, JAMA 2012;307:2526–2533): PaO2 70 on
 // the FiO2 0.5 carried from day 1 10:00 gives 140 at day 3 08:00, 2,760 min (46 h) later.
 import { describe, expect, it } from 'vitest';
+import { CARRIED_46_H, gasLater } from '../helpers/carried-notes';
 import { checkNote } from '../../server/src/core';
 import { hoverAt } from '../../server/src/core/service';
 import { run } from '../../server/src/cli/main';
 import { memoryIo } from '../helpers/memory-io';
 import { noteAt } from '../service/cursor';
 
-const EXAMPLE = [
-  'patient   age 60 y, sex female, height 165 cm',
-  '@ day 1 10:00 start',
-  'vent      mode VC, vt 420, rate 16, peep 8, fio2 0.5',
-  'abg       ph 7.38, pco2 42, po2 90',
-  '@ day 3 08:00 later',
-  'abg       ph 7.38, pco2 42, po2 70',
-].join('\n');
+const EXAMPLE = CARRIED_46_H;
 
-/** A note with the ventilator set at day 1 10:00 and a gas at `time` (its line, `then`, first). */
-const later = (time: string, then = '') => [
-  '@ day 1 10:00 start',
-  'vent      mode VC, vt 420, rate 16, peep 8, fio2 0.5',
-  `@ ${time} later`,
-  ...(then ? [then] : []),
-  'abg       ph 7.38, pco2 42, po2 70',
-].join('\n');
+const later = gasLater;
 
 describe('where a value carried from another day came from', () => {
   it('names the day and time in readings, and not for a carry within the day', () => {

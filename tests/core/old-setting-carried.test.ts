@@ -3,29 +3,16 @@
 // P/F of PaO2 70 on the FiO2 0.5 of day 1 10:00 is 140, 46 h after the FiO2 was written.
 // The default of 12 h (one shift) is common practice, no source.
 import { describe, expect, it } from 'vitest';
+import { CARRIED_46_H, gasLater } from '../helpers/carried-notes';
 import { checkNote } from '../../server/src/core';
 import { NoteSession } from '../../server/src/core/session';
 import type { Settings } from '../../server/src/core/settings';
 
-const EXAMPLE = [
-  'patient   age 60 y, sex female, height 165 cm',
-  '@ day 1 10:00 start',
-  'vent      mode VC, vt 420, rate 16, peep 8, fio2 0.5',
-  'abg       ph 7.38, pco2 42, po2 90',
-  '@ day 3 08:00 later',
-  'abg       ph 7.38, pco2 42, po2 70',
-].join('\n');
+const EXAMPLE = CARRIED_46_H;
 
 const found = (text: string, settings: Partial<Settings> = {}) => checkNote(text, settings).findings.filter((f) => f.code === 'PN326');
 
-/** A note with the ventilator set at day 1 10:00 and a gas at `time` (its line, `then`, first). */
-const later = (time: string, then = '') => [
-  '@ day 1 10:00 start',
-  'vent      mode VC, vt 420, rate 16, peep 8, fio2 0.5',
-  `@ ${time} later`,
-  ...(then ? [then] : []),
-  'abg       ph 7.38, pco2 42, po2 70',
-].join('\n');
+const later = gasLater;
 
 describe('a setting carried into a gas from long before (PN326)', () => {
   it('is reported once, on the gas line, naming the settings, their values, when and where they were stated, and how long ago', () => {
