@@ -134,6 +134,19 @@ describe('what to add, worded for a measurement', () => {
     expect(shown).toContain('carried  FiO2 0.40 (carried from day 3 09:00, line 3)');
     expect(shown).toContain('add the measured vt at this timepoint and rr to get VR');
   });
+
+  it('show marks a tidal volume measured under PS or on a vent line of readings under NIV, not one set under VC, and lists the mark in its legend', async () => {
+    const { renderShow } = await import('../../server/src/cli/render-show');
+    const { paint } = await import('../../server/src/cli/colour');
+    const shown = renderShow('ps.pneu', checkNote(PS_THEN_GAS), paint(false));
+    expect(shown).toContain('vent     mode PS · ps 10 cmH2O · PEEP 8 cmH2O · VT 380 mL (measured) · FiO2 0.40');
+    expect(shown).toMatch(/\n {2}\(measured\) +a value that is a setting under other modes, measured here/);
+    const niv = renderShow('niv.pneu', checkNote(`${PATIENT}@ 08:00\noxygen    niv ipap 14, epap 6\nvent      vt 500, peak 18\n`), paint(false));
+    expect(niv).toContain('vent     VT 500 mL (measured) · peak 18 cmH2O');
+    const vc = renderShow('vc.pneu', checkNote(`${PATIENT}@ 08:00\nvent      mode VC, vt 420, rate 16, peep 5\n`), paint(false));
+    expect(vc).toContain('vent     mode VC · VT 420 mL · rate 16 /min · PEEP 5 cmH2O');
+    expect(vc).not.toContain('(measured)');
+  });
 });
 
 describe('hovers', () => {

@@ -11,7 +11,7 @@ import { isGasPressureValue } from '../core/derive/model';
 import type { Paint } from './colour';
 
 /** The marks `show` writes beside values, lines and findings, in the order the legend lists them. */
-export const MARKS = ['carried', 'estimate', 'not-used', 'unit-doubt', 'unreadable-line', 'start', 'finding'] as const;
+export const MARKS = ['carried', 'estimate', 'not-used', 'measured', 'unit-doubt', 'unreadable-line', 'start', 'finding'] as const;
 export type Mark = (typeof MARKS)[number];
 
 /** Each mark as it looks in the output, and what it means. */
@@ -19,6 +19,7 @@ const MARK_TEXT: Readonly<Record<Mark, readonly [string, string]>> = {
   carried: ['*', 'a derived value computed with a value carried from an earlier timepoint'],
   estimate: ['est.', 'a derived value that is an estimate by a rough rule'],
   'not-used': ['(not used)', 'left out of every calculation; the finding under the line it was written on says why'],
+  measured: ['(measured)', 'a value that is a setting under other modes, measured here (a tidal volume under PS, PC or NIV): in force at its timepoint only, not carried'],
   'unit-doubt': ['… ?', 'a bare number whose unit is in doubt, as written; (if unit: …) is its value if meant in that unit'],
   'unreadable-line': ['? …', 'a line Pneumark could not read as a section line; the finding under it says why'],
   start: ['@ (start)', 'a timepoint without a time: what was measured before the note\'s first @ line'],

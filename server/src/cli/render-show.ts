@@ -103,7 +103,11 @@ function renderSectionLine(node: Extract<LineNode, { kind: 'section' }>, stated:
     const value = asRead ? `${asRead.kpa} kPa` : inKpa ?? (s.unitDoubt ? `${s.item.value?.text ?? ''} ?` : formatStated(s));
     if (s.unitDoubt) legend.mark('unit-doubt');
     if (!s.usable) legend.mark('not-used');
-    const flag = s.usable ? '' : p.yellow(' (not used)');
+    // A value its field holds as a setting, read here as a measurement of this timepoint (a tidal
+    // volume under a mode that sets a pressure, or on a vent line of readings under NIV): not carried.
+    const measured = node.section === 'vent' && s.usable && s.hereOnly && s.field.reading !== true;
+    if (measured) legend.mark('measured');
+    const flag = s.usable ? (measured ? p.dim(' (measured)') : '') : p.yellow(' (not used)');
     return `${shortOf(s.fieldId)} ${p.bold(visible(value))}${alt ? p.dim(` (${visible(alt)})`) : ''}${flag}`;
   });
   return `${head} ${parts.join(p.dim(' · '))}`;
