@@ -256,12 +256,18 @@ export function carriedMinutes(origin: CarriedOrigin): number | null {
 /** `day 1 10:00`, as a timepoint line writes it; `day 1` when only the day is known; null when neither is. */
 export function timeText(time: TimepointTime): string | null {
   if (time.minutes !== null && Number.isFinite(time.minutes)) {
-    const whole = Math.round(time.minutes);
-    const day = Math.floor(whole / 1440) + 1;
-    const inDay = whole - (day - 1) * 1440;
-    return `day ${day} ${String(Math.floor(inDay / 60)).padStart(2, '0')}:${String(inDay % 60).padStart(2, '0')}`;
+    const { day, clock } = dayAndClock(time.minutes);
+    return `day ${day} ${clock}`;
   }
   return time.day !== null ? `day ${time.day}` : null;
+}
+
+/** Minutes since day 1 00:00 (finite) as a day and a clock: 2,040 is day 2 and `10:00`. */
+export function dayAndClock(minutes: number): { readonly day: number; readonly clock: string } {
+  const whole = Math.round(minutes);
+  const day = Math.floor(whole / 1440) + 1;
+  const inDay = whole - (day - 1) * 1440;
+  return { day, clock: `${String(Math.floor(inDay / 60)).padStart(2, '0')}:${String(inDay % 60).padStart(2, '0')}` };
 }
 
 export function labelOf(fieldId: string): string {

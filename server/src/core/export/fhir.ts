@@ -248,7 +248,6 @@ export interface WrittenAs {
 
 const NOTHING_MORE: WrittenAs = { key: null, device: null, mode: null, support: null };
 
-
 /**
  * Why a LOINC code does not fit a value of `field` stated in `section`, read from what the code's
  * name says (its property in brackets, its specimen after `in`); null when nothing contradicts it.

@@ -17,7 +17,7 @@ import { shortAsName } from '../derive/context';
 import { fieldFor, fieldsInSection, loincFor, type FieldDef } from '../fields/registry';
 import { measuredByMode } from '../fields/modes';
 import { sectionById, type SectionId } from '../fields/sections';
-import { describeInput, formatAlternative, formatStated, readUnitName, statedInKpa } from '../present';
+import { dayAndClock, describeInput, formatAlternative, formatStated, readUnitName, statedInKpa } from '../present';
 import type { SectionLine, TimepointLine } from '../syntax/tree';
 import type { Position } from '../types';
 import { formatNumber, formatShort, wordList } from '../util/format';
@@ -311,12 +311,8 @@ function carryText(field: FieldDef, section: SectionId, stated: StatedValue | nu
 /** `day 2, 08:00`: minutes since day 1 00:00 as a day and clock. */
 export function clockText(minutes: number): string {
   if (!Number.isFinite(minutes)) return 'time unknown';
-  const whole = Math.round(minutes);
-  const day = Math.floor(whole / 1440) + 1;
-  const inDay = whole - (day - 1) * 1440;
-  const h = Math.floor(inDay / 60);
-  const m = inDay % 60;
-  return `day ${day}, ${String(h).padStart(2, '0')}:${String(m).padStart(2, '0')}`;
+  const { day, clock } = dayAndClock(minutes);
+  return `day ${day}, ${clock}`;
 }
 
 /** The time as written after `@` (also one that could not be read), without the label. */
