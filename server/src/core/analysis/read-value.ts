@@ -342,7 +342,10 @@ function unknownKeyIssue(item: ItemNode, section: SectionId, line: number, lineI
     // The first words of an oxygen line are its device: a misspelt device of several words
     // (`oxygen room aor`, `oxygen rom air 2`) reads as unknown keys, and is reported once, on all
     // its words, with the device offered for them together; its later words are not reported again.
-    const phrase = lineItems[0] === item ? devicePhraseAt(key, lineItems, 1, lineText) : null;
+    // A device read from its first word with a later word misspelt (`oxygen nasal canula 2`) is the same.
+    const first = lineItems[0];
+    const deviceFirst = lineItems[1] === item && first?.field?.id === 'device' && first.implied === 'device' && first.value?.kind === 'word' ? first.value : null;
+    const phrase = lineItems[0] === item ? devicePhraseAt(key, lineItems, 1, lineText) : deviceFirst ? devicePhraseAt(deviceFirst, lineItems, 1, lineText) : null;
     if (phrase) {
       const fix = phraseFix(phrase, lineText);
       return {
@@ -618,7 +621,7 @@ function inDevicePhrase(item: ItemNode, lineItems: readonly ItemNode[], lineText
     const start = lineItems[i]!;
     let phrase: DevicePhrase | null = null;
     if (i === 0 && start.field === null && start.key !== null && start.value === null) phrase = devicePhraseAt(start.key, lineItems, 1, lineText);
-    else if (start.field?.id === 'device' && start.implied === null && start.value?.kind === 'word') phrase = devicePhraseAt(start.value, lineItems, i + 1, lineText);
+    else if (start.field?.id === 'device' && (start.implied === null || start.implied === 'device') && start.value?.kind === 'word') phrase = devicePhraseAt(start.value, lineItems, i + 1, lineText);
     if (phrase && at <= i + phrase.items) return true;
   }
   return false;

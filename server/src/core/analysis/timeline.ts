@@ -36,7 +36,7 @@
  * holds a value from a timepoint whose label reads like a line number (`@ 08:00 see line 7`: its
  * findings may name that timepoint by its label, unquoted, see `namesLine`).
  */
-import { FIELDS, type FieldDef } from '../fields/registry';
+import { canonicalWord, FIELDS, type FieldDef } from '../fields/registry';
 import { sectionById, type SectionId } from '../fields/sections';
 import type { Settings } from '../settings';
 import type { ItemNode, LineEdit, LineFix, LineNode, NoteTree, SectionLine, Span, TimepointLine } from '../syntax/tree';
@@ -799,7 +799,7 @@ function deviceFio2Conflict(device: StatedValue, written: StatedValue, lines: re
   let w = at - 1;
   while (w >= 0 && items[w]!.implied !== 'device') w--;
   const word = w >= 0 ? items[w]! : null;
-  const venturi = word !== null && word.implied === 'device' && word.value?.kind === 'word' && word.value.text.toLowerCase() === 'venturi';
+  const venturi = word !== null && word.implied === 'device' && word.value?.kind === 'word' && word.field !== null && canonicalWord(word.field, word.value.text) === 'venturi';
   const deviceText = itemText(device.item);
   const writtenText = itemText(written.item);
   const named = venturi ? `the Venturi setting \`${deviceText}\`` : `\`${deviceText}\` after \`${word?.value?.text ?? 'the device'}\``;

@@ -20,6 +20,9 @@ export const DEVICE_PHRASES: readonly DevicePhraseDef[] = (() => {
   return Object.keys(words).filter((w) => w.includes(' ')).map((w) => ({ device: words[w]!, words: w.split(' ') }));
 })();
 
+/** `DEVICE_PHRASES` with the most words first, so that `nasal high flow` is read before `nasal`. */
+export const DEVICE_PHRASES_LONGEST_FIRST: readonly DevicePhraseDef[] = [...DEVICE_PHRASES].sort((a, b) => b.words.length - a.words.length);
+
 /**
  * The device of several words that the words `written` begin with, near it word by word as a
  * did-you-mean is (`closest`) and with at least one word misspelt (a device written right is read

@@ -4,6 +4,7 @@
  * be re-parsed alone (see `parseLine`). Linear in the length of the text.
  */
 import { canonicalWord, fieldFor, FIELDS, type FieldDef } from '../fields/registry';
+import { DEVICE_PHRASES_LONGEST_FIRST } from '../fields/device-phrases';
 import { SECTIONS, sectionByName, type SectionDef, type SectionId } from '../fields/sections';
 import { isKnownUnitSpelling, unitsForSpelling, UNITS } from '../fields/units';
 import { unitsWithin } from '../analysis/bounds';
@@ -1489,11 +1490,23 @@ function deviceWordAt(chunks: readonly Word[], i: number): { text: string; span:
   if (!c) return null;
   const device = fieldFor('oxygen', 'device');
   if (!device?.words) return null;
-  const next = chunks[i + 1];
-  if (lowerCase(c.text) === 'room' && next && !next.afterComma && lowerCase(next.text) === 'air') {
-    return { text: `${c.text} ${next.text}`, span: { start: c.start, end: next.end }, used: 2 };
+  const first = lowerCase(c.text);
+  // A device of several words (`room air`, `nasal cannula`, `simple face mask`), longest first, its
+  // words separated by blanks only: the words as written, joined by one blank.
+  for (const phrase of DEVICE_PHRASES_LONGEST_FIRST) {
+    const n = phrase.words.length;
+    if (phrase.words[0] !== first) continue;
+    let fits = true;
+    for (let j = 1; j < n && fits; j++) {
+      const w = chunks[i + j];
+      fits = w !== undefined && !w.afterComma && lowerCase(w.text) === phrase.words[j];
+    }
+    if (!fits) continue;
+    let text = c.text;
+    for (let j = 1; j < n; j++) text += ` ${chunks[i + j]!.text}`;
+    return { text, span: { start: c.start, end: chunks[i + n - 1]!.end }, used: n };
   }
-  if (device.words[lowerCase(c.text)] && !isKey('oxygen', c.text)) return { text: c.text, span: c.span, used: 1 };
+  if (device.words[first] && !isKey('oxygen', c.text)) return { text: c.text, span: c.span, used: 1 };
   return null;
 }
 
@@ -1779,7 +1792,8 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
           i++;
           const unit = unitAfter(gluedUnit(next, length), chunks, i, section, source);
           i += UNIT_CHUNKS;
-          const deviceWord = lowerCase(dev.text);
+          // The device by its usual name (`venturi mask` is `venturi`).
+          const deviceWord = canonicalWord(fieldFor(section, 'device')!, dev.text) ?? lowerCase(dev.text);
           const highFlow = deviceWord !== 'cpap' && deviceWord !== 'venturi' && isHighFlowDevice(section, dev.text);
           const percent = highFlow && isPercent(unit);
           const keyName = deviceWord === 'cpap' ? 'level' : deviceWord === 'venturi' ? venturiNumberKey(number, unit) : percent ? 'fio2' : 'flow';
