@@ -360,6 +360,18 @@ describe('while a value of several parts is typed', () => {
     expect(labels('oxygen room air |')).toContain('fio2');
   });
 
+  it('completes a device named in several words (`nasal c|`, `simple face |`), each with the device it is', () => {
+    expect(labels('oxygen nasal c|')).toEqual(['nasal cannula']);
+    expect(complete('oxygen nasal c|')[0]?.detail).toBe('Oxygen device: cannula');
+    expect(labels('oxygen simple f|')).toEqual(['simple face mask']);
+    expect(labels('oxygen non-rebreather m|')).toEqual(['non-rebreather mask']);
+    const applied = applyEdits('oxygen simple fa 6 L/min', [{ range: complete('oxygen simple fa|')[0]!.replace!, newText: 'simple face mask' }]);
+    expect(applied).toBe('oxygen simple face mask 6 L/min');
+    expect(checkNote(applied).findings.map((f) => f.code)).toEqual([]);
+    // Words that already name a device (`nasal` is a cannula), then a blank: its flow and keys are offered as after any device.
+    expect(labels('oxygen nasal |')).toContain('flow');
+  });
+
   it('completes a device of two words after its key too (`device room a|`, also after other items)', () => {
     for (const marked of ['oxygen device room |', 'oxygen device room a|', 'oxygen fio2 0.21, device ROOM  A|']) {
       const items = complete(marked);

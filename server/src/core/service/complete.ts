@@ -243,7 +243,14 @@ function deviceLeadStart(chunks: readonly { readonly text: string; readonly span
 function leadDeviceCompletions(text: string, leadStart: number, ch: number, replace: Range): CompletionInfo[] | null {
   const lead = squeezeBlanks(text.slice(leadStart, ch)).toLowerCase();
   if (!lead.includes(' ') || lead.includes(',')) return null;
-  const found = wordCompletions(fieldFor('oxygen', 'device'), replace).filter((c) => c.label.includes(' ') && c.label.toLowerCase().startsWith(lead));
+  const field = fieldFor('oxygen', 'device');
+  const words = field?.words ?? {};
+  // Words that already name a device, then a blank (`oxygen nasal |`): a flow or a key may come
+  // next as well as the rest of a longer name, so the usual offers stand.
+  if (lead.endsWith(' ') && words[lead.trimEnd()] !== undefined) return null;
+  const found = Object.keys(words)
+    .filter((w) => w.includes(' ') && w.startsWith(lead))
+    .map((w): CompletionInfo => ({ label: w, kind: 'word', detail: w === words[w] ? field!.label : `${field!.label}: ${words[w]}`, insertText: w, replace }));
   return found.length > 0 ? found : null;
 }
 
