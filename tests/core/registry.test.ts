@@ -198,10 +198,15 @@ describe('LOINC codes checked on a page', () => {
     // 2705-2 "Venous Oxygen partial pressure" (and the arterial 2019-8 and 2703-7 beside them, as Pneumark has them)
     expectCode(at('pvco2', 'vbg'), '2021-4', 'Carbon dioxide [Partial pressure] in Venous blood', 'ValueSet-dicom-cid-3524-BloodGasPressure.fsh');
     expectCode(at('pvo2', 'vbg'), '2705-2', 'Oxygen [Partial pressure] in Venous blood', 'ValueSet-dicom-cid-3524-BloodGasPressure.fsh');
-    // FHIR R4 ballot 3 (2018), Observation example f002-excess (a sample from a forearm vein): LOINC 11555-0 =
-    // "Base excess in Blood by calculation", blood of any kind. The venous code (1927-3, recalled) was not found on such a
-    // page, and the arterial 1925-7 does not fit a vbg line: a venous base excess carries the blood code.
-    expectCode(at('base_excess', 'vbg'), '11555-0', 'Base excess in Blood by calculation', 'https://hl7.org/fhir/2018Dec/observation-example-f002-excess.html');
+    // A venous base excess: both terms read (December 2026, session 26). 11555-0 "Base excess in Blood by calculation"
+    // (FHIR R4 ballot 3 (2018), Observation example f002-excess) has the system Bld, blood of any kind; 1927-3 "Base
+    // excess in Venous blood by calculation" has the system BldV with the same component (Base excess), property (SCnc),
+    // scale (Qn) and method (Calc) as the arterial 1925-7 (system BldA): read in the LOINC 2.82 term data of 1927-3 and
+    // 1925-7 as reproduced at healthassure.in, and beside 11555-0 and 1925-7 in DICOM CID 3527 Blood Base Excess
+    // ("Venous Blood Base Excess"). A vbg line states venous blood, as its pH, PvCO2, PvO2 and HCO3 codes (2746-6, 2021-4,
+    // 2705-2, 14627-4) say: its base excess takes the venous code, no longer the unspecified blood one.
+    expectCode(at('base_excess', 'vbg'), '1927-3', 'Base excess in Venous blood by calculation', 'https://www.healthassure.in/codes/loinc-1927-3-base-excess-calc-bldv-molesvol');
+    expect(at('base_excess', 'vbg')?.source).toContain('ValueSet-dicom-cid-3527-BloodBaseExcess.fsh');
     expect(at('base_excess', 'abg')?.code).toBe('1925-7');
   });
 
