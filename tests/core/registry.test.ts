@@ -198,10 +198,15 @@ describe('LOINC codes checked on a page', () => {
     // 2705-2 "Venous Oxygen partial pressure" (and the arterial 2019-8 and 2703-7 beside them, as Pneumark has them)
     expectCode(at('pvco2', 'vbg'), '2021-4', 'Carbon dioxide [Partial pressure] in Venous blood', 'ValueSet-dicom-cid-3524-BloodGasPressure.fsh');
     expectCode(at('pvo2', 'vbg'), '2705-2', 'Oxygen [Partial pressure] in Venous blood', 'ValueSet-dicom-cid-3524-BloodGasPressure.fsh');
-    // FHIR R4 ballot 3 (2018), Observation example f002-excess (a sample from a forearm vein): LOINC 11555-0 =
-    // "Base excess in Blood by calculation", blood of any kind. The venous code (1927-3, recalled) was not found on such a
-    // page, and the arterial 1925-7 does not fit a vbg line: a venous base excess carries the blood code.
-    expectCode(at('base_excess', 'vbg'), '11555-0', 'Base excess in Blood by calculation', 'https://hl7.org/fhir/2018Dec/observation-example-f002-excess.html');
+    // A venous base excess: both terms read (December 2026, session 26). 11555-0 "Base excess in Blood by calculation"
+    // (FHIR R4 ballot 3 (2018), Observation example f002-excess) has the system Bld, blood of any kind; 1927-3 "Base
+    // excess in Venous blood by calculation" has the system BldV with the same component (Base excess), property (SCnc),
+    // scale (Qn) and method (Calc) as the arterial 1925-7 (system BldA): read in the LOINC 2.82 term data of 1927-3 and
+    // 1925-7 as reproduced at healthassure.in, and beside 11555-0 and 1925-7 in DICOM CID 3527 Blood Base Excess
+    // ("Venous Blood Base Excess"). A vbg line states venous blood, as its pH, PvCO2, PvO2 and HCO3 codes (2746-6, 2021-4,
+    // 2705-2, 14627-4) say: its base excess takes the venous code, no longer the unspecified blood one.
+    expectCode(at('base_excess', 'vbg'), '1927-3', 'Base excess in Venous blood by calculation', 'https://www.healthassure.in/codes/loinc-1927-3-base-excess-calc-bldv-molesvol');
+    expect(at('base_excess', 'vbg')?.source).toContain('ValueSet-dicom-cid-3527-BloodBaseExcess.fsh');
     expect(at('base_excess', 'abg')?.code).toBe('1925-7');
   });
 
@@ -255,6 +260,49 @@ describe('LOINC codes checked on a page', () => {
   it('respiratory rate', () => {
     // FHIR R4 ballot 1 (2018Jan), Observation example respiratory-rate: LOINC code '9279-1' = 'Respiratory rate'
     expectCode(at('rr', 'vitals'), '9279-1', 'Respiratory rate', 'https://hl7.org/fhir/2018Jan/observation-example-respiratory-rate.xml.html');
+  });
+
+  it('codes from the project reference notes, read on a page (December 2026, session 26), each with the unit the page gives', () => {
+    // The UCUM unit Pneumark exports a field in, to hold against the unit of the value on the page.
+    const ucum = (id: string) => unitById(fieldById(id)!.unit!)!.ucum;
+    // GECCO, the German Corona Consensus data set (hl7germany/forschungsnetz-covid19 at 0ae58236, 046e5961): its example
+    // Observations code body height 8302-2 "Body height" in cm, body weight 29463-7 "Body weight" in kg, heart rate 8867-4
+    // "Heart rate" in /min, body temperature 8310-5 "Body temperature" in Cel, PaCO2 2019-8 "Carbon dioxide [Partial
+    // pressure] in Arterial blood" in mm[Hg], and the inhaled oxygen concentration 3150-0 "Inhaled oxygen concentration"
+    // in % (a volume fraction, VFr in LOINC: Pneumark writes the same fraction with the UCUM unit 1).
+    const gecco = (file: string, commit = '0ae58236e41cf4fd148d7a30a68bc313bd62d959') => `https://github.com/hl7germany/forschungsnetz-covid19/blob/${commit}/input/fsh/instances/${file}`;
+    expectCode(at('height', 'patient'), '8302-2', 'Body height', gecco('Example_BodyHeight.fsh'));
+    expect(ucum('height')).toBe('cm');
+    expectCode(at('weight', 'patient'), '29463-7', 'Body weight', gecco('Example_BodyWeight.fsh'));
+    expect(ucum('weight')).toBe('kg');
+    expectCode(at('hr', 'vitals'), '8867-4', 'Heart rate', gecco('Example_HeartRate.fsh'));
+    expect(ucum('hr')).toBe('/min');
+    expectCode(at('temp', 'vitals'), '8310-5', 'Body temperature', gecco('Example_BodyTemperature.fsh', '046e59610e08ccff469a632d0a55d3755c57b01b'));
+    expect(ucum('temp')).toBe('Cel');
+    expectCode(at('paco2', 'abg'), '2019-8', 'Carbon dioxide [Partial pressure] in Arterial blood', gecco('Example_PaCO2.fsh'));
+    expect(ucum('paco2')).toBe('mm[Hg]');
+    for (const s of ['oxygen', 'abg'] as const) expectCode(at('fio2', s), '3150-0', 'Inhaled oxygen concentration', gecco('Example_FiO2.fsh'));
+    expect(ucum('fio2')).toBe('1');
+    // HL7 US Core 7.0.0-ballot (2024Jan), Observation satO2-fiO2: a component "Inhaled oxygen flow rate (LOINC#3151-8)",
+    // 6 liters/min (UCUM L/min).
+    expectCode(at('o2_flow', 'oxygen'), '3151-8', 'Inhaled oxygen flow rate', 'https://hl7.org/fhir/us/core/2024Jan/Observation-satO2-fiO2.html');
+    expect(ucum('o2_flow')).toBe('L/min');
+    // MII ICU module 2027.0.0-ballot.3, the ventilation LOINC value set (above): 20112-9 "Tidal volume setting Ventilator";
+    // its example Observation mii-exa-icu-vent-atemzugvolumen-einstellung gives 500 mL.
+    expectCode(at('vt', 'vent'), '20112-9', 'Tidal volume setting Ventilator', 'ValueSet-mii-vs-icu-code-observation-beatmung-loinc.json');
+    expect(ucum('vt')).toBe('mL');
+    // LOINC 2.82 term data of 1925-7 as reproduced at healthassure.in: "Base excess in Arterial blood by calculation",
+    // component Base excess, property SCnc (mmol/L), system BldA, method Calc; DICOM CID 3527 "Arterial Blood Base Excess".
+    expectCode(at('base_excess', 'abg'), '1925-7', 'Base excess in Arterial blood by calculation', 'https://www.healthassure.in/codes/loinc-1925-7-base-excess-calc-blda-molesvol');
+    expect(at('base_excess', 'abg')?.source).toContain('ValueSet-dicom-cid-3527-BloodBaseExcess.fsh');
+    expect(ucum('base_excess')).toBe('mmol/L');
+    // HL7 Vulcan Schedule of Activities IG, ObservationDefinition LOINC-1751-7 (LOINC 2.74): "Albumin [Mass/volume] in Serum
+    // or Plasma", permitted unit g/dL, specimen Ser/Plas.
+    expectCode(at('albumin', 'labs'), '1751-7', 'Albumin [Mass/volume] in Serum or Plasma', 'https://github.com/HL7/Vulcan-schedule-ig/blob/1814964ae606eed4b0104fbb6034d0671fa46b26/input/fsh/observationdefinitions/LOINC-1751-7-ObservationDefinition.fsh');
+    expect(ucum('albumin')).toBe('g/dL');
+    // Not found on such a page (LOINC pages, FHIR examples and value sets, LOINC table copies searched): 1960-4
+    // "Bicarbonate [Moles/volume] in Arterial blood" keeps the project reference notes as its source.
+    expect(at('hco3', 'abg')?.source).toBeUndefined();
   });
 
   it('no code is left marked as recalled', () => {

@@ -233,7 +233,7 @@ describe('cells', () => {
     expect([row?.na_mmol_L, row?.hb_g_dL, row?.etco2_mmHg, row?.fio2_fraction]).toEqual([139, 12, 30, 0.5]);
   });
 
-  it('keep an arterial and a venous base excess of one timepoint apart, neither lost: LOINC codes them as two values (1925-7 in arterial blood, 11555-0 in blood; FHIR R4 example observation-example-f002-excess)', () => {
+  it('keep an arterial and a venous base excess of one timepoint apart, neither lost: LOINC codes them as two values (1925-7 in arterial blood, 1927-3 in venous blood)', () => {
     const [both] = rowsOf('@ day 1 08:00\nabg 7.30/50/80/24, be 0.5\nvbg 7.28/55/40/25, be 1');
     expect([both?.base_excess_mmol_L, both?.base_excess_venous_mmol_L]).toEqual([0.5, 1]);
     // Written the other way round, each still in its own column.

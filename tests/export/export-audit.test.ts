@@ -616,7 +616,7 @@ describe('FHIR Observations worked out by hand', () => {
     const t = '2030-01-01T19:00:00Z';
     expectObservations(observations('17-vbg-lactate-hb').filter((o) => /base-excess|venous|pv|lactate|-hb$/.test(o.id)), [
       ['obs-0-base-excess', '1925-7', 'Base excess in Arterial blood by calculation', -1, 'mmol/L', t],
-      ['obs-0-base-excess-vbg', '11555-0', 'Base excess in Blood by calculation', -2, 'mmol/L', t],
+      ['obs-0-base-excess-vbg', '1927-3', 'Base excess in Venous blood by calculation', -2, 'mmol/L', t],
       ['obs-0-ph-venous', '2746-6', 'pH of Venous blood', 7.32, '[pH]', t],
       ['obs-0-pvco2', '2021-4', 'Carbon dioxide [Partial pressure] in Venous blood', 50, 'mm[Hg]', t],
       ['obs-0-pvo2', '2705-2', 'Oxygen [Partial pressure] in Venous blood', 40, 'mm[Hg]', t],

@@ -223,10 +223,11 @@ describe('codes that fit the value', () => {
     expect(validator.validate(b, true)).toEqual([]);
   });
 
-  it('a venous base excess is coded as blood, not as arterial; an electrolyte from a blood gas is coded as whole blood, from the laboratory as serum or plasma', () => {
+  it('a venous base excess is coded as venous blood, not as arterial; an electrolyte from a blood gas is coded as whole blood, from the laboratory as serum or plasma', () => {
     const b = toFhirBundle('a.pneu', checked('@ day 1 08:00\nvbg 7.30/50/40/24, be -4, na 135, k 4.4\n@ +1h\nabg 7.35/40/90/22, be -2, cl 101\n@ +1h\nlabs na 140, k 4.1, cl 103'), noAnchor);
-    expect(codeOf(b, 'obs-0-base-excess')).toEqual({ coding: [{ system: 'http://loinc.org', code: '11555-0', display: 'Base excess in Blood by calculation' }], text: 'Base excess' }); // vbg: blood
+    expect(codeOf(b, 'obs-0-base-excess')).toEqual({ coding: [{ system: 'http://loinc.org', code: '1927-3', display: 'Base excess in Venous blood by calculation' }], text: 'Base excess' }); // vbg: venous blood
     expect(loincMismatch(fieldById('base_excess')!.loinc!, fieldById('base_excess')!, 'vbg')).toBe('1925-7 is for arterial blood, the value is from a venous gas');
+    expect(loincMismatch(fieldById('base_excess')!.loincBySection!.vbg!, fieldById('base_excess')!, 'abg')).toBe('1927-3 is for venous blood, the value is from an arterial gas');
     expect(codeOf(b, 'obs-1-base-excess')?.coding?.map((c) => c.code)).toEqual(['1925-7']); // arterial, on an abg line
     expect(codeOf(b, 'obs-0-na')?.coding).toEqual([{ system: 'http://loinc.org', code: '2947-0', display: 'Sodium [Moles/volume] in Blood' }]); // vbg: whole blood
     expect(codeOf(b, 'obs-0-k')?.coding?.map((c) => c.code)).toEqual(['6298-4']);
@@ -290,7 +291,7 @@ describe('codes that fit the value', () => {
         if (registry && fhirLoinc(f, section) === null) dropped.push(`${f.id}@${section}: ${loincMismatch(registry, f, section)}`);
       }
     }
-    // None: a venous base excess has a blood code of its own (11555-0) instead of the arterial 1925-7.
+    // None: a venous base excess has a venous code of its own (1927-3) instead of the arterial 1925-7.
     expect(dropped).toEqual([]);
   });
 

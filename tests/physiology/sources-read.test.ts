@@ -25,6 +25,10 @@
  *   sagamigaoka-ac.com, which gives the AARC guideline of 2003 as its reference.
  * - A 28 % Venturi mask at 4 L/min, in table 1 of a Breathe review adapted from the 2008 BTS
  *   guideline (breathe.ersjournals.com).
+ *
+ * Read in December 2026 (session 26):
+ * - The conventional mmHg of NIST SP 811 appendix B.8, 133.3224 Pa, as reproduced in the R package
+ *   NISTunits (rdrr.io). The LOINC codes read in that session are checked in tests/core/registry.test.ts.
  */
 import { describe, expect, it } from 'vitest';
 import { VT_PER_KG_HARD_MAX, VT_PER_KG_USUAL } from '../../server/src/core/analysis/per-kg-volume';
@@ -41,6 +45,7 @@ import {
 import { OSI_MAX_SPO2_PERCENT, oxygenationIndex, oxygenSaturationIndex, SOURCES as GAS_EXCHANGE } from '../../server/src/core/physiology/gas-exchange';
 import { SOURCES as MECHANICS } from '../../server/src/core/physiology/mechanics';
 import { VENTURI_PERCENT } from '../../server/src/core/syntax/parser';
+import { MMHG_PER_KPA, PA_PER_MMHG, SOURCES as UNIT_SOURCES } from '../../server/src/core/physiology/units';
 
 /** Per mmHg, as read; Pneumark's spans are per 10 mmHg. */
 const NARINS_EMMETT_AS_ADAPTED = { acuteAcidosis: 0.1, chronicAcidosis: 0.35, acuteAlkalosis: 0.2, chronicAlkalosis: 0.5 } as const;
@@ -202,5 +207,26 @@ describe('BTS: a Venturi setting, as read', () => {
   it('the citations say where the setting was read', () => {
     expect(venturiSetting.source).toContain('breathe.ersjournals.com');
     expect(venturiFio2High.source).toContain('breathe.ersjournals.com');
+  });
+});
+
+// The conventional millimetre of mercury as read (December 2026, session 26): 133.3224 Pa, the factor of NIST SP 811
+// appendix B.8 as reproduced in the R package NISTunits 1.0.1 (Gama J), whose NISTmillimeterOfMercuryConvtnlTOpascal
+// multiplies by 133.3224 and names "NIST Guide to SI Units B.8 Factors for Units Listed Alphabetically" as its source
+// (its help page at rdrr.io; the function body in a stored copy of the package source). NIST's own page not read.
+const NIST_B8_PA_PER_MMHG = 133.3224;
+
+describe('NIST SP 811: the conventional mmHg, as read in its reproduction', () => {
+  it('Pneumark\'s 133.322387415 Pa is NIST\'s 133.3224 to its seven figures, so 1 kPa is 7.50062 mmHg either way', () => {
+    expect(Math.round(PA_PER_MMHG * 1e4) / 1e4).toBe(NIST_B8_PA_PER_MMHG);
+    expect(Math.abs(PA_PER_MMHG - NIST_B8_PA_PER_MMHG) / NIST_B8_PA_PER_MMHG).toBeLessThan(1e-7);
+    expect(MMHG_PER_KPA).toBeCloseTo(1000 / NIST_B8_PA_PER_MMHG, 4);
+    expect(Math.round(MMHG_PER_KPA * 1e5) / 1e5).toBe(7.50062);
+  });
+
+  it('the citation says where the factor was read, and what of it is still recalled', () => {
+    expect(UNIT_SOURCES['nist-sp811']).toContain('NISTunits');
+    expect(UNIT_SOURCES['nist-sp811']).toContain('rdrr.io/rforge/NISTunits/man/NISTmillimeterOfMercuryConvtnlTOpascal.html');
+    expect(UNIT_SOURCES['nist-sp811']).not.toContain('conventional mmHg = 133.3224 Pa, conventional cmH2O = 98.0665 Pa, international foot = 0.3048 m, degree Fahrenheit) (from memory)');
   });
 });

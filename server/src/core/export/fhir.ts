@@ -23,7 +23,7 @@
  * registry (per key where it has one: a serum value written as `tco2` is total CO2; else per
  * section where it has one: a ventilator's FiO2 is a setting, sodium, potassium, chloride and
  * glucose on a blood gas line are whole blood, on a labs line serum or plasma, and a base excess
- * from a `vbg` line is coded as blood, the arterial code being for `abg` lines) only when what the
+ * from a `vbg` line is coded as venous blood, the arterial code being for `abg` lines) only when what the
  * code's name says agrees with the value (`fhirLoinc`, `loincMismatch`):
  * - a `[Mass/volume]` code never on a value in mmol/L, nor `[Moles/volume]` on one in g/dL;
  * - an arterial-blood code never on a value from a `vbg` line, nor a venous one on an `abg` line;

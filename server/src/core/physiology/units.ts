@@ -11,7 +11,7 @@ import { allFinite, finiteOrNull } from './numeric';
 /** Citations for the constants in this module (key → citation). */
 export const SOURCES = Object.freeze({
   'nist-sp811':
-    'Thompson A, Taylor BN. Guide for the Use of the International System of Units (SI). NIST Special Publication 811, 2008 edition, appendix B (conversion factors: conventional mmHg = 133.3224 Pa, conventional cmH2O = 98.0665 Pa, international foot = 0.3048 m, degree Fahrenheit) (from memory).',
+    'Thompson A, Taylor BN. Guide for the Use of the International System of Units (SI). NIST Special Publication 811, 2008 edition, appendix B: the conventional mmHg, 133.3224 Pa, read in its reproduction in the R package NISTunits 1.0.1 by Gama J, whose conversion NISTmillimeterOfMercuryConvtnlTOpascal multiplies by 133.3224 and names appendix B.8 of the guide as its source (its help page at rdrr.io/rforge/NISTunits/man/NISTmillimeterOfMercuryConvtnlTOpascal.html, the function body in a stored copy of the package source); the guide itself not read, and its other factors used here (conventional cmH2O = 98.0665 Pa, international foot = 0.3048 m, degree Fahrenheit) from memory.',
   'si-brochure':
     'Bureau International des Poids et Mesures. The International System of Units (SI Brochure), 9th edition, 2019: standard atmosphere 101 325 Pa, kelvin and degree Celsius (from memory).',
   'glucose-molar-mass':
