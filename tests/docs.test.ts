@@ -415,3 +415,62 @@ describe('the note lines quoted in grammar/README.md', () => {
     expect([stated('abg pco2 40 ph 7.4', 'paco2'), stated('abg pco2 40 ph 7.4', 'ph')]).toEqual([40, 7.4]);
   });
 });
+
+/**
+ * What the README shows of an output, read from the reviewed goldens of the sample notes
+ * (tests/golden, which tests/cli/golden.test.ts compares with what the command line writes), so an
+ * excerpt cannot drift from the output it quotes.
+ */
+describe('the outputs README.md shows', () => {
+  const doc = readFileSync('README.md', 'utf8');
+  const ANY = Symbol('abridged');
+  /** The JSON of a `jsonc` example, its comments dropped and what it abridges (`...`, `[ ... ]`, `{ ... }`) made a wildcard. */
+  const parseExample = (text: string): unknown => JSON.parse(
+    text.replace(/\s\/\/.*$/gm, '').replace(/\[ \.\.\. \]|\{ \.\.\. \}|"\.\.\."/g, '"<abridged>"').replace(/,\s*\.\.\.,/g, ','),
+    (_key, value: unknown) => (value === '<abridged>' ? ANY : value),
+  );
+  const decimals = (n: number): number => String(n).split('.')[1]?.length ?? 0;
+  /** Where `shown` differs from `actual`: every member shown is there, in the output's order, with the value shown (a number as rounded); a list shows some of its entries. */
+  const differences = (shown: unknown, actual: unknown, at: string): string[] => {
+    if (shown === ANY) return [];
+    if (typeof shown === 'number') return typeof actual === 'number' && Number(actual.toFixed(decimals(shown))) === shown ? [] : [`${at}: ${String(actual)}, not ${shown}`];
+    if (Array.isArray(shown)) {
+      if (!Array.isArray(actual)) return [`${at}: not a list`];
+      return shown.flatMap((entry, i) => {
+        if (actual.some((a) => differences(entry, a, at).length === 0)) return [];
+        // Told against the entry of the same first member (its code, index, field or id) where there is one.
+        const [key, value] = entry !== null && typeof entry === 'object' ? Object.entries(entry)[0] ?? [] : [];
+        const like: unknown = actual.find((a: Record<string, unknown>) => key !== undefined && a?.[key] === value);
+        return like === undefined ? [`${at}[${i}]: no entry like it`] : differences(entry, like, `${at}[${i}]`);
+      });
+    }
+    if (shown !== null && typeof shown === 'object') {
+      if (actual === null || typeof actual !== 'object' || Array.isArray(actual)) return [`${at}: not an object`];
+      const order = Object.keys(actual);
+      const keys = Object.keys(shown);
+      const missing = keys.filter((k) => !order.includes(k)).map((k) => `${at}.${k}: not in the output`);
+      const present = keys.filter((k) => order.includes(k));
+      const sorted = [...present].sort((a, b) => order.indexOf(a) - order.indexOf(b));
+      const misordered = present.join() === sorted.join() ? [] : [`${at}: members in the order ${sorted.join(', ')}, not ${present.join(', ')}`];
+      return [...missing, ...misordered, ...present.flatMap((k) => differences((shown as Record<string, unknown>)[k], (actual as Record<string, unknown>)[k], `${at}.${k}`))];
+    }
+    return shown === actual ? [] : [`${at}: ${JSON.stringify(actual)}, not ${JSON.stringify(shown)}`];
+  };
+
+  it('the JSON examples, version 1 and 2, are what `check --format json` writes for samples/broken-note.pneu', () => {
+    const examples = [...doc.matchAll(/```jsonc\n([\s\S]*?)```/g)].map((m) => parseExample(m[1]!) as { pneumark: number });
+    expect(examples.map((e) => e.pneumark)).toEqual([1, 2]);
+    const golden = (version: number): unknown => JSON.parse(readFileSync(`tests/golden/broken-note.check${version === 1 ? '' : '-v2'}.json`, 'utf8'));
+    expect(examples.flatMap((e) => differences(e, golden(e.pneumark), `version ${e.pneumark}`))).toEqual([]);
+  });
+
+  it("the demo note's legend quoted is part of what `npm start` shows", () => {
+    const excerpt = /Part of the demo\s+note's legend:\n\n\s*```text\n([\s\S]*?)```/.exec(doc)?.[1] ?? '';
+    const lines = excerpt.split('\n').map((l) => l.trim()).filter(Boolean);
+    expect(lines[0]).toBe('legend');
+    expect(lines.length).toBeGreaterThan(3);
+    const shown = readFileSync('tests/golden/summit-hut-evacuation.show.txt', 'utf8').split('\n').map((l) => l.trim());
+    expect(readFileSync('package.json', 'utf8')).toContain('node dist/cli.js show samples/summit-hut-evacuation.pneu');
+    expect(lines.filter((l) => !shown.includes(l))).toEqual([]);
+  });
+});
