@@ -188,6 +188,9 @@ describe('the settings in README.md', () => {
     const text = section.replace(/\s+/g, ' ');
     const debounce = p['pneumark.debounceMs']!;
     expect(text).toContain(`\`pneumark.debounceMs\`, the milliseconds to wait after the last keystroke before a note is checked again (${String(debounce.default)} by default, ${String(debounce.minimum)} to ${String(debounce.maximum)})`);
+    const size = p['pneumark.maxNoteSizeKb']!;
+    expect(text).toContain(`\`pneumark.maxNoteSizeKb\`, the size in KB above which a note is not checked (${String(size.default)} by default, ${String(size.minimum)} to ${String(size.maximum)};`);
+    expect(doc.replace(/\s+/g, ' ')).toContain(`notes over \`pneumark.maxNoteSizeKb\` (counted in UTF-8 bytes; ${String(size.default)} by default, ${String(size.minimum)} to ${String(size.maximum)})`);
     expect(text).toContain(`\`pneumark.trace.server\` (${p['pneumark.trace.server']!.enum!.map((v, i, all) => `${i === all.length - 1 ? 'or ' : ''}\`${v}\``).join(', ').replace(', or', ' or')})`);
   });
 
