@@ -43,6 +43,13 @@ describe('pneumark help COMMAND', () => {
     expect((await cli(['help'])).out).toBe(`${HELP.main}\n`);
   });
 
+  it('help has --help too, as every command has (README): help --help, help -h and help help print the main help, which describes help', async () => {
+    for (const args of [['help', '--help'], ['help', '-h'], ['help', 'help']]) {
+      expect(await cli(args), args.join(' ')).toEqual({ code: 0, out: `${HELP.main}\n`, err: '' });
+    }
+    expect(HELP.main).toMatch(/^ {2}pneumark help \[COMMAND\] {2,}/m);
+  });
+
   it('an unknown command is a usage error that names the commands', async () => {
     const r = await cli(['help', 'chekc']);
     expect(r.code).toBe(2);
