@@ -170,9 +170,11 @@ describe('the steps of DEVELOPERS.md', () => {
   const doc = readFileSync('DEVELOPERS.md', 'utf8');
   const section = (title: string): string => new RegExp(`## ${title}\\n([\\s\\S]*?)\\n## `).exec(doc)?.[1]?.replace(/\s+/g, ' ') ?? '';
 
-  it('for adding a check name every place a check is listed in, as the tests that compare them ask', () => {
+  it('for adding a check or a field name every place it is listed in, as the tests that compare them ask', () => {
     const steps = section('Adding a check');
     for (const place of ['`CHECKS` in `checks/registry.ts`', '`pneumark.disabledChecks` in package.json', '`enumDescriptions`', 'tests/vscode/manifest.test.ts', '`npm run docs`', 'tests/cli/golden.test.ts']) expect(steps, place).toContain(place);
+    const field = section('Adding a field');
+    for (const place of ['`FIELDS` in `server/src/core/fields/registry.ts`', '`ADDED_LATER`', 'tests/export/columns.test.ts', 'FHIR paragraph', '`npm run docs`']) expect(field, place).toContain(place);
     const manifest = readFileSync('tests/vscode/manifest.test.ts', 'utf8');
     expect(manifest).toContain("expect(items.enum).toEqual(CHECKS.flatMap((c) => [c.code, c.alias]));");
     expect(manifest).toContain('expect(items.enumDescriptions).toEqual(CHECKS.flatMap((c) => [c.title, `${c.code}: ${c.title}`]));');
