@@ -181,6 +181,20 @@ describe('the steps of DEVELOPERS.md', () => {
   });
 });
 
+describe('the commands of the extension in README.md', () => {
+  it('names each command package.json contributes by its title, and the ones with a button in the title bar of a note', () => {
+    const doc = readFileSync('README.md', 'utf8');
+    const bullet = (/- commands under \*\*Pneumark:\*\*([\s\S]*?)\n- /.exec(doc)?.[1] ?? '').replace(/\s+/g, ' ');
+    const manifest = JSON.parse(readFileSync('package.json', 'utf8')) as { contributes: { commands: { command: string; title: string; category: string }[]; menus: Record<string, { command: string }[]> } };
+    const { commands, menus } = manifest.contributes;
+    expect(commands.length).toBeGreaterThan(4);
+    expect(commands.filter((c) => c.category !== 'Pneumark' || !bullet.includes(`*${c.title}*`)).map((c) => c.title)).toEqual([]);
+    const inTitleBar = (menus['editor/title'] ?? []).map((m) => commands.find((c) => c.command === m.command)!.title);
+    expect(inTitleBar.length).toBeGreaterThan(0);
+    expect(inTitleBar.filter((title) => !new RegExp(`\\*${title.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')}\\* \\([^)]*title bar`).test(bullet))).toEqual([]);
+  });
+});
+
 describe('the settings in README.md', () => {
   const doc = readFileSync('README.md', 'utf8');
   const section = /### `pneumark\.config\.json`\n([\s\S]*?)\n## /.exec(doc)?.[1] ?? '';
