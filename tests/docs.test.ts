@@ -182,13 +182,15 @@ describe('the steps of DEVELOPERS.md', () => {
 });
 
 describe('the commands of the extension in README.md', () => {
-  it('names each command package.json contributes by its title, and the ones with a button in the title bar of a note', () => {
+  it('names each command package.json contributes by its title, the ones with a button in the title bar of a note, and the editor settings it sets', () => {
     const doc = readFileSync('README.md', 'utf8');
     const bullet = (/- commands under \*\*Pneumark:\*\*([\s\S]*?)\n- /.exec(doc)?.[1] ?? '').replace(/\s+/g, ' ');
     const manifest = JSON.parse(readFileSync('package.json', 'utf8')) as { contributes: { commands: { command: string; title: string; category: string }[]; menus: Record<string, { command: string }[]> } };
     const { commands, menus } = manifest.contributes;
     expect(commands.length).toBeGreaterThan(4);
     expect(commands.filter((c) => c.category !== 'Pneumark' || !bullet.includes(`*${c.title}*`)).map((c) => c.title)).toEqual([]);
+    const defaults = (JSON.parse(readFileSync('package.json', 'utf8')) as { contributes: { configurationDefaults: Record<string, Record<string, unknown>> } }).contributes.configurationDefaults;
+    expect(Object.entries(defaults).flatMap(([scope, values]) => Object.entries(values).map(([k, v]) => `"${scope}": { "${k}": ${JSON.stringify(v)} }`)).filter((d) => !doc.replace(/\s+/g, ' ').includes(d))).toEqual([]);
     const inTitleBar = (menus['editor/title'] ?? []).map((m) => commands.find((c) => c.command === m.command)!.title);
     expect(inTitleBar.length).toBeGreaterThan(0);
     expect(inTitleBar.filter((title) => !new RegExp(`\\*${title.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')}\\* \\([^)]*title bar`).test(bullet))).toEqual([]);
