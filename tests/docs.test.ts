@@ -149,6 +149,27 @@ describe('the command line in README.md', () => {
   });
 });
 
+describe('the help of show', () => {
+  it('names every kind of line show writes under a timepoint', async () => {
+    const { renderShow } = await import('../server/src/cli/render-show');
+    const { paint } = await import('../server/src/cli/colour');
+    const notes = [
+      ...fixtureFiles('tests/fixtures', 'samples').map((f) => f.text),
+      // A child (n/a: no A–a normal, no PBW), a set rate of 0 (withheld), a carried setting.
+      'patient age 8 y, sex male, height 120 cm\n@ 08:00\nvent mode VC, vt 200, rate 0, peep 5, fio2 0.4\n@ 09:00\nabg 7.40/40/80/24',
+    ];
+    const sectionWords = new Set(SECTIONS.flatMap((s) => [s.id, ...s.aliases]));
+    const kinds = new Set<string>();
+    for (const note of notes) {
+      const shown = renderShow('note.pneu', checkNote(note), paint(false));
+      const body = shown.slice(0, shown.indexOf('\nlegend\n'));
+      for (const m of body.matchAll(/^ {2}(\S+) +\S/gm)) if (!sectionWords.has(m[1]!)) kinds.add(m[1]!);
+    }
+    expect([...kinds].sort()).toEqual(expect.arrayContaining(['carried', 'derived', 'missing', 'n/a', 'reading', 'withheld']));
+    expect([...kinds].filter((k) => !new RegExp(`^ {2}${k.replace(/[/]/g, '\\/')} {2,}\\S`, 'm').test(HELP.show!))).toEqual([]);
+  });
+});
+
 describe('the FHIR export in README.md', () => {
   const doc = readFileSync('README.md', 'utf8').replace(/\s+/g, ' ');
   const listAfter = (lead: string): string => (new RegExp(`${lead} \\(([^)]*)\\)`).exec(doc)?.[1] ?? '').toLowerCase();
