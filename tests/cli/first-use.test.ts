@@ -50,6 +50,17 @@ describe('pneumark help COMMAND', () => {
     expect(HELP.main).toMatch(/^ {2}pneumark help \[COMMAND\] {2,}/m);
   });
 
+  it("a command's usage line says [options], or names every option its help lists", () => {
+    for (const command of ['show', 'check', 'export', 'fmt', 'docs']) {
+      const help = HELP[command]!;
+      const usage = help.split('\n')[0]!;
+      if (usage.includes('[options]')) continue;
+      const options = [...new Set([...help.slice(help.indexOf('Options:')).matchAll(/^ {2}(--[a-z-]+)/gm)].map((m) => m[1]!))];
+      expect(options.length, command).toBeGreaterThan(0);
+      expect(options.filter((o) => !usage.includes(o)), usage).toEqual([]);
+    }
+  });
+
   it('an unknown command is a usage error that names the commands', async () => {
     const r = await cli(['help', 'chekc']);
     expect(r.code).toBe(2);

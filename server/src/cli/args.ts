@@ -137,7 +137,7 @@ Options:
                              read: one line on standard error says so, and the output is that of
                              the other inputs (none: a CSV header alone, or an empty array)
 Columns are listed in README.md ("Export columns").`,
-  fmt: `Usage: pneumark fmt PATH... [--check | --write] [--force] [--stdin-name PATH]
+  fmt: `Usage: pneumark fmt PATH... [--check | --write] [--force] [--exclude PATTERN] [--stdin-name PATH]
 
 Without --check or --write, prints the formatted note (one file only).
 
