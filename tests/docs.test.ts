@@ -1,5 +1,5 @@
 // docs/checks.md is generated from the check registry; it must match what the generator writes.
-import { readFileSync } from 'node:fs';
+import { readdirSync, readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { renderCheckDocs } from '../server/src/core/checks/docs';
 import { CHECKS, docAnchor } from '../server/src/core/checks/registry';
@@ -190,6 +190,13 @@ describe('the FHIR export in README.md', () => {
 describe('the steps of DEVELOPERS.md', () => {
   const doc = readFileSync('DEVELOPERS.md', 'utf8');
   const section = (title: string): string => new RegExp(`## ${title}\\n([\\s\\S]*?)\\n## `).exec(doc)?.[1]?.replace(/\s+/g, ' ') ?? '';
+
+  it('name every folder and module at the top of the core in the layout', () => {
+    const layout = /```\nserver\/src\/core\/([\s\S]*?)\nserver\/src\/node\//.exec(doc)?.[1] ?? '';
+    const entries = readdirSync('server/src/core', { withFileTypes: true }).map((e) => (e.isDirectory() ? `${e.name}/` : e.name));
+    expect(entries.length).toBeGreaterThan(10);
+    expect(entries.filter((e) => e !== 'index.ts' && !new RegExp(`(^|[\\s(\`])${e.replace(/\./g, '\\.')}`, 'm').test(layout))).toEqual([]);
+  });
 
   it('for adding a check or a field name every place it is listed in, as the tests that compare them ask', () => {
     const steps = section('Adding a check');
