@@ -1,5 +1,5 @@
 // docs/checks.md is generated from the check registry; it must match what the generator writes.
-import { readFileSync } from 'node:fs';
+import { readdirSync, readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { renderCheckDocs } from '../server/src/core/checks/docs';
 import { CHECKS, docAnchor } from '../server/src/core/checks/registry';
@@ -149,6 +149,27 @@ describe('the command line in README.md', () => {
   });
 });
 
+describe('the help of show', () => {
+  it('names every kind of line show writes under a timepoint', async () => {
+    const { renderShow } = await import('../server/src/cli/render-show');
+    const { paint } = await import('../server/src/cli/colour');
+    const notes = [
+      ...fixtureFiles('tests/fixtures', 'samples').map((f) => f.text),
+      // A child (n/a: no A–a normal, no PBW), a set rate of 0 (withheld), a carried setting.
+      'patient age 8 y, sex male, height 120 cm\n@ 08:00\nvent mode VC, vt 200, rate 0, peep 5, fio2 0.4\n@ 09:00\nabg 7.40/40/80/24',
+    ];
+    const sectionWords = new Set(SECTIONS.flatMap((s) => [s.id, ...s.aliases]));
+    const kinds = new Set<string>();
+    for (const note of notes) {
+      const shown = renderShow('note.pneu', checkNote(note), paint(false));
+      const body = shown.slice(0, shown.indexOf('\nlegend\n'));
+      for (const m of body.matchAll(/^ {2}(\S+) +\S/gm)) if (!sectionWords.has(m[1]!)) kinds.add(m[1]!);
+    }
+    expect([...kinds].sort()).toEqual(expect.arrayContaining(['carried', 'derived', 'missing', 'n/a', 'reading', 'withheld']));
+    expect([...kinds].filter((k) => !new RegExp(`^ {2}${k.replace(/[/]/g, '\\/')} {2,}\\S`, 'm').test(HELP.show!))).toEqual([]);
+  });
+});
+
 describe('the FHIR export in README.md', () => {
   const doc = readFileSync('README.md', 'utf8').replace(/\s+/g, ' ');
   const listAfter = (lead: string): string => (new RegExp(`${lead} \\(([^)]*)\\)`).exec(doc)?.[1] ?? '').toLowerCase();
@@ -163,6 +184,44 @@ describe('the FHIR export in README.md', () => {
     expect(therapy.length).toBeGreaterThan(10);
     const settings = observed.filter((f) => observationCategory(f) === 'therapy').map((f) => f.label);
     expect(settings.filter((label) => !therapy.includes(label.toLowerCase()))).toEqual([]);
+  });
+});
+
+describe('the steps of DEVELOPERS.md', () => {
+  const doc = readFileSync('DEVELOPERS.md', 'utf8');
+  const section = (title: string): string => new RegExp(`## ${title}\\n([\\s\\S]*?)\\n## `).exec(doc)?.[1]?.replace(/\s+/g, ' ') ?? '';
+
+  it('name every folder and module at the top of the core in the layout', () => {
+    const layout = /```\nserver\/src\/core\/([\s\S]*?)\nserver\/src\/node\//.exec(doc)?.[1] ?? '';
+    const entries = readdirSync('server/src/core', { withFileTypes: true }).map((e) => (e.isDirectory() ? `${e.name}/` : e.name));
+    expect(entries.length).toBeGreaterThan(10);
+    expect(entries.filter((e) => e !== 'index.ts' && !new RegExp(`(^|[\\s(\`])${e.replace(/\./g, '\\.')}`, 'm').test(layout))).toEqual([]);
+  });
+
+  it('for adding a check or a field name every place it is listed in, as the tests that compare them ask', () => {
+    const steps = section('Adding a check');
+    for (const place of ['`CHECKS` in `checks/registry.ts`', '`pneumark.disabledChecks` in package.json', '`enumDescriptions`', 'tests/vscode/manifest.test.ts', '`npm run docs`', 'tests/cli/golden.test.ts']) expect(steps, place).toContain(place);
+    const field = section('Adding a field');
+    for (const place of ['`FIELDS` in `server/src/core/fields/registry.ts`', '`ADDED_LATER`', 'tests/export/columns.test.ts', 'FHIR paragraph', '`npm run docs`']) expect(field, place).toContain(place);
+    const manifest = readFileSync('tests/vscode/manifest.test.ts', 'utf8');
+    expect(manifest).toContain("expect(items.enum).toEqual(CHECKS.flatMap((c) => [c.code, c.alias]));");
+    expect(manifest).toContain('expect(items.enumDescriptions).toEqual(CHECKS.flatMap((c) => [c.title, `${c.code}: ${c.title}`]));');
+  });
+});
+
+describe('the commands of the extension in README.md', () => {
+  it('names each command package.json contributes by its title, the ones with a button in the title bar of a note, and the editor settings it sets', () => {
+    const doc = readFileSync('README.md', 'utf8');
+    const bullet = (/- commands under \*\*Pneumark:\*\*([\s\S]*?)\n- /.exec(doc)?.[1] ?? '').replace(/\s+/g, ' ');
+    const manifest = JSON.parse(readFileSync('package.json', 'utf8')) as { contributes: { commands: { command: string; title: string; category: string }[]; menus: Record<string, { command: string }[]> } };
+    const { commands, menus } = manifest.contributes;
+    expect(commands.length).toBeGreaterThan(4);
+    expect(commands.filter((c) => c.category !== 'Pneumark' || !bullet.includes(`*${c.title}*`)).map((c) => c.title)).toEqual([]);
+    const defaults = (JSON.parse(readFileSync('package.json', 'utf8')) as { contributes: { configurationDefaults: Record<string, Record<string, unknown>> } }).contributes.configurationDefaults;
+    expect(Object.entries(defaults).flatMap(([scope, values]) => Object.entries(values).map(([k, v]) => `"${scope}": { "${k}": ${JSON.stringify(v)} }`)).filter((d) => !doc.replace(/\s+/g, ' ').includes(d))).toEqual([]);
+    const inTitleBar = (menus['editor/title'] ?? []).map((m) => commands.find((c) => c.command === m.command)!.title);
+    expect(inTitleBar.length).toBeGreaterThan(0);
+    expect(inTitleBar.filter((title) => !new RegExp(`\\*${title.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')}\\* \\([^)]*title bar`).test(bullet))).toEqual([]);
   });
 });
 
@@ -188,6 +247,9 @@ describe('the settings in README.md', () => {
     const text = section.replace(/\s+/g, ' ');
     const debounce = p['pneumark.debounceMs']!;
     expect(text).toContain(`\`pneumark.debounceMs\`, the milliseconds to wait after the last keystroke before a note is checked again (${String(debounce.default)} by default, ${String(debounce.minimum)} to ${String(debounce.maximum)})`);
+    const size = p['pneumark.maxNoteSizeKb']!;
+    expect(text).toContain(`\`pneumark.maxNoteSizeKb\`, the size in KB above which a note is not checked (${String(size.default)} by default, ${String(size.minimum)} to ${String(size.maximum)};`);
+    expect(doc.replace(/\s+/g, ' ')).toContain(`notes over \`pneumark.maxNoteSizeKb\` (counted in UTF-8 bytes; ${String(size.default)} by default, ${String(size.minimum)} to ${String(size.maximum)})`);
     expect(text).toContain(`\`pneumark.trace.server\` (${p['pneumark.trace.server']!.enum!.map((v, i, all) => `${i === all.length - 1 ? 'or ' : ''}\`${v}\``).join(', ').replace(', or', ' or')})`);
   });
 
@@ -359,6 +421,19 @@ const SPEC_LINES: Readonly<Record<string, readonly string[] | { readonly on: str
 /** Quoted shapes rather than lines: placeholders, or a section word named in a sentence. */
 const SPEC_TEMPLATES = new Set(['@ day N HH:MM', '@ HH:MM', '@ day N', 'units gas']);
 
+describe('set or measured, by mode, in grammar/README.md', () => {
+  it('a tidal volume measured under PS is not carried: what rests on it at a later timepoint asks for the one measured there', () => {
+    const doc = readFileSync('grammar/README.md', 'utf8').replace(/\s+/g, ' ');
+    expect(doc).toContain('after `vent mode PS, ps 10, peep 8, vt 380` at 09:00, a gas at 10:00 has no tidal volume, and what rests on one and is worked out there (the ventilatory ratio of the gas; minute ventilation, static and dynamic compliance where a rate, a plateau or a peak is written there too) asks for `the measured vt at this timepoint`');
+    const asking = (later: string): string[] => {
+      const { analysis } = checkNote(`patient age 50, sex male, height 175 cm\n@ 09:00\nvent mode PS, ps 10, peep 8, vt 380\n@ 10:00\n${later}`);
+      return analysis.derivation(1).missing.filter((m) => m.needs.includes('the measured vt at this timepoint')).map((m) => m.id);
+    };
+    expect(asking('abg 7.40/40/90/24')).toEqual(['ventilatory_ratio']);
+    expect(asking('vitals rr 20\nvent plateau 22, peak 25\nabg 7.40/40/90/24')).toEqual(['minute_ventilation', 'compliance_static', 'compliance_dynamic', 'ventilatory_ratio']);
+  });
+});
+
 describe('the note lines quoted in grammar/README.md', () => {
   const doc = readFileSync('grammar/README.md', 'utf8');
   const sectionWords = new Set(SECTIONS.flatMap((s) => [s.id, ...s.aliases]));
@@ -413,5 +488,64 @@ describe('the note lines quoted in grammar/README.md', () => {
     const stated = (line: string, id: string) => checkNote(`@ 08:00\n${line}`).analysis.timeline.timepoints[0]!.values.get(id)?.stated?.value;
     expect(stated('vent fio2 28', 'fio2')).toBe(0.28);
     expect([stated('abg pco2 40 ph 7.4', 'paco2'), stated('abg pco2 40 ph 7.4', 'ph')]).toEqual([40, 7.4]);
+  });
+});
+
+/**
+ * What the README shows of an output, read from the reviewed goldens of the sample notes
+ * (tests/golden, which tests/cli/golden.test.ts compares with what the command line writes), so an
+ * excerpt cannot drift from the output it quotes.
+ */
+describe('the outputs README.md shows', () => {
+  const doc = readFileSync('README.md', 'utf8');
+  const ANY = Symbol('abridged');
+  /** The JSON of a `jsonc` example, its comments dropped and what it abridges (`...`, `[ ... ]`, `{ ... }`) made a wildcard. */
+  const parseExample = (text: string): unknown => JSON.parse(
+    text.replace(/\s\/\/.*$/gm, '').replace(/\[ \.\.\. \]|\{ \.\.\. \}|"\.\.\."/g, '"<abridged>"').replace(/,\s*\.\.\.,/g, ','),
+    (_key, value: unknown) => (value === '<abridged>' ? ANY : value),
+  );
+  const decimals = (n: number): number => String(n).split('.')[1]?.length ?? 0;
+  /** Where `shown` differs from `actual`: every member shown is there, in the output's order, with the value shown (a number as rounded); a list shows some of its entries. */
+  const differences = (shown: unknown, actual: unknown, at: string): string[] => {
+    if (shown === ANY) return [];
+    if (typeof shown === 'number') return typeof actual === 'number' && Number(actual.toFixed(decimals(shown))) === shown ? [] : [`${at}: ${String(actual)}, not ${shown}`];
+    if (Array.isArray(shown)) {
+      if (!Array.isArray(actual)) return [`${at}: not a list`];
+      return shown.flatMap((entry, i) => {
+        if (actual.some((a) => differences(entry, a, at).length === 0)) return [];
+        // Told against the entry of the same first member (its code, index, field or id) where there is one.
+        const [key, value] = entry !== null && typeof entry === 'object' ? Object.entries(entry)[0] ?? [] : [];
+        const like: unknown = actual.find((a: Record<string, unknown>) => key !== undefined && a?.[key] === value);
+        return like === undefined ? [`${at}[${i}]: no entry like it`] : differences(entry, like, `${at}[${i}]`);
+      });
+    }
+    if (shown !== null && typeof shown === 'object') {
+      if (actual === null || typeof actual !== 'object' || Array.isArray(actual)) return [`${at}: not an object`];
+      const order = Object.keys(actual);
+      const keys = Object.keys(shown);
+      const missing = keys.filter((k) => !order.includes(k)).map((k) => `${at}.${k}: not in the output`);
+      const present = keys.filter((k) => order.includes(k));
+      const sorted = [...present].sort((a, b) => order.indexOf(a) - order.indexOf(b));
+      const misordered = present.join() === sorted.join() ? [] : [`${at}: members in the order ${sorted.join(', ')}, not ${present.join(', ')}`];
+      return [...missing, ...misordered, ...present.flatMap((k) => differences((shown as Record<string, unknown>)[k], (actual as Record<string, unknown>)[k], `${at}.${k}`))];
+    }
+    return shown === actual ? [] : [`${at}: ${JSON.stringify(actual)}, not ${JSON.stringify(shown)}`];
+  };
+
+  it('the JSON examples, version 1 and 2, are what `check --format json` writes for samples/broken-note.pneu', () => {
+    const examples = [...doc.matchAll(/```jsonc\n([\s\S]*?)```/g)].map((m) => parseExample(m[1]!) as { pneumark: number });
+    expect(examples.map((e) => e.pneumark)).toEqual([1, 2]);
+    const golden = (version: number): unknown => JSON.parse(readFileSync(`tests/golden/broken-note.check${version === 1 ? '' : '-v2'}.json`, 'utf8'));
+    expect(examples.flatMap((e) => differences(e, golden(e.pneumark), `version ${e.pneumark}`))).toEqual([]);
+  });
+
+  it("the demo note's legend quoted is part of what `npm start` shows", () => {
+    const excerpt = /Part of the demo\s+note's legend:\n\n\s*```text\n([\s\S]*?)```/.exec(doc)?.[1] ?? '';
+    const lines = excerpt.split('\n').map((l) => l.trim()).filter(Boolean);
+    expect(lines[0]).toBe('legend');
+    expect(lines.length).toBeGreaterThan(3);
+    const shown = readFileSync('tests/golden/summit-hut-evacuation.show.txt', 'utf8').split('\n').map((l) => l.trim());
+    expect(readFileSync('package.json', 'utf8')).toContain('node dist/cli.js show samples/summit-hut-evacuation.pneu');
+    expect(lines.filter((l) => !shown.includes(l))).toEqual([]);
   });
 });

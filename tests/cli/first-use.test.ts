@@ -43,6 +43,24 @@ describe('pneumark help COMMAND', () => {
     expect((await cli(['help'])).out).toBe(`${HELP.main}\n`);
   });
 
+  it('help has --help too, as every command has (README): help --help, help -h and help help print the main help, which describes help', async () => {
+    for (const args of [['help', '--help'], ['help', '-h'], ['help', 'help']]) {
+      expect(await cli(args), args.join(' ')).toEqual({ code: 0, out: `${HELP.main}\n`, err: '' });
+    }
+    expect(HELP.main).toMatch(/^ {2}pneumark help \[COMMAND\] {2,}/m);
+  });
+
+  it("a command's usage line says [options], or names every option its help lists", () => {
+    for (const command of ['show', 'check', 'export', 'fmt', 'docs']) {
+      const help = HELP[command]!;
+      const usage = help.split('\n')[0]!;
+      if (usage.includes('[options]')) continue;
+      const options = [...new Set([...help.slice(help.indexOf('Options:')).matchAll(/^ {2}(--[a-z-]+)/gm)].map((m) => m[1]!))];
+      expect(options.length, command).toBeGreaterThan(0);
+      expect(options.filter((o) => !usage.includes(o)), usage).toEqual([]);
+    }
+  });
+
   it('an unknown command is a usage error that names the commands', async () => {
     const r = await cli(['help', 'chekc']);
     expect(r.code).toBe(2);

@@ -474,7 +474,7 @@ describe('show\'s legend', () => {
     const out = io();
     await run(['show', '--help'], out);
     const help = out.out();
-    for (const row of ['header', 'SECTION', 'carried', 'derived', 'withheld', 'missing', 'reading']) expect(help, row).toMatch(new RegExp(`\\b${row}\\b`));
+    for (const row of ['header', 'SECTION', 'carried', 'derived', 'withheld', 'n/a', 'missing', 'reading']) expect(help, row).toMatch(new RegExp(`(?<![\\w/])${row}(?![\\w/])`));
     expect(help.replace(/\s+/g, ' ')).toContain('A legend at the end explains every short name and mark used above');
   });
 
@@ -484,5 +484,20 @@ describe('show\'s legend', () => {
     const coloured = io('', true);
     await run(['show', 'samples/broken-note.pneu'], coloured);
     expect(coloured.out()).toContain('\u001b[1mlegend\u001b[22m');
+  });
+});
+
+describe('colour, as README.md says', () => {
+  it('on a terminal; NO_COLOR (not empty) turns it off; FORCE_COLOR (not 0) turns it on in a file or a pipe; NO_COLOR wins', async () => {
+    const { colourWanted } = await import('../../server/src/cli/colour');
+    expect(colourWanted({ isTTY: true }, {})).toBe(true);
+    expect(colourWanted({ isTTY: false }, {})).toBe(false);
+    expect(colourWanted({ isTTY: true }, { NO_COLOR: '1' })).toBe(false);
+    expect(colourWanted({ isTTY: true }, { NO_COLOR: '' })).toBe(true);
+    expect(colourWanted({ isTTY: false }, { FORCE_COLOR: '1' })).toBe(true);
+    expect(colourWanted({ isTTY: false }, { FORCE_COLOR: '0' })).toBe(false);
+    expect(colourWanted({ isTTY: false }, { FORCE_COLOR: '1', NO_COLOR: '1' })).toBe(false);
+    const doc = readFileSync('README.md', 'utf8').replace(/\s+/g, ' ');
+    expect(doc).toContain('set `NO_COLOR` (to any non-empty value) to turn it off (output to a file or a pipe has none, unless `FORCE_COLOR` is set to anything but `0`; `NO_COLOR` wins over it)');
   });
 });

@@ -28,6 +28,26 @@ describe('predicted body weight is for adults (ARDS Network 2000, from memory)',
     expect(notApplicable(note('age 17 y, sex female, height 160 cm'), 'predicted_body_weight')).toMatch(/at age 17 y$/);
   });
 
+  it('`show` and the hovers say so where the values would have been (grammar/README.md: they "say so instead of asking for it")', async () => {
+    const text = note('age 6 y, sex male, height 100 cm');
+    const { renderShow } = await import('../../server/src/cli/render-show');
+    const { paint } = await import('../../server/src/cli/colour');
+    const shown = renderShow('child.pneu', checkNote(text), paint(false));
+    const why = 'the ARDS Network equation is for adults (18 years or more): not worked out at age 6 y';
+    expect(shown).toContain(`n/a      PBW: ${why}`);
+    expect(shown).toContain(`n/a      VT/PBW: no predicted body weight: ${why}`);
+    expect(shown).toContain(`n/a      VR: no predicted body weight: ${why}`);
+    const { hoverAt } = await import('../../server/src/core/service');
+    const lines = text.split('\n');
+    const onVt = hoverAt(checkNote(text), { line: 2, character: lines[2]!.indexOf('120') })?.markdown ?? '';
+    expect(onVt).toContain(`Not worked out here: PBW — ${why}.`);
+    expect(onVt).toContain(`Not worked out here: VT/PBW — no predicted body weight: ${why}.`);
+    const onPco2 = hoverAt(checkNote(text), { line: 3, character: lines[3]!.indexOf('pco2 40') + 5 })?.markdown ?? '';
+    expect(onPco2).toContain(`Not worked out here: VR — no predicted body weight: ${why}.`);
+    // An adult height that gives no weight, the same.
+    expect(renderShow('short.pneu', checkNote(note('age 30 y, sex female, height 100 cm')), paint(false))).toContain('n/a      PBW: the ARDS Network equation gives no weight for a height of 100 cm');
+  });
+
   it('is worked out from 18 years, and where the age is not given', () => {
     // 50 + 0.91 × (175 − 152.4) = 70.566 kg.
     expect(derived(note('age 18 y, sex male, height 175 cm'), 'predicted_body_weight').value).toBeCloseTo(70.566, 3);

@@ -64,6 +64,8 @@ time, its label and its line number) with
   carried    values in force from an earlier timepoint, with the line they were stated on
   derived    values computed from those in force
   withheld   values a finding keeps back (e.g. P/F when PaO2 is above the alveolar PO2), with why
+  n/a        values whose formula does not hold here, though their inputs are (e.g. the upper
+             normal A–a gradient of a child), with why
   missing    what to add (as keys written in a note) to get the ones that could not be computed
   reading    what the values are consistent with
 and each finding (error, warning or info) under the line it belongs to. A legend at the end
@@ -135,7 +137,7 @@ Options:
                              read: one line on standard error says so, and the output is that of
                              the other inputs (none: a CSV header alone, or an empty array)
 Columns are listed in README.md ("Export columns").`,
-  fmt: `Usage: pneumark fmt PATH... [--check | --write] [--force] [--stdin-name PATH]
+  fmt: `Usage: pneumark fmt PATH... [--check | --write] [--force] [--exclude PATTERN] [--stdin-name PATH]
 
 Without --check or --write, prints the formatted note (one file only).
 

@@ -79,6 +79,11 @@ function help(args: readonly string[], io: Io): number {
   }
   if (args.length > 1) throw new UsageError(`takes one command (got ${args.map((a) => JSON.stringify(a)).join(', ')})`);
   const command = args[0]!;
+  // help is a command too, and has --help as every command has: its help is the main one.
+  if (command === 'help' || command === '--help' || command === '-h') {
+    io.stdout.write(`${HELP.main}\n`);
+    return EXIT.ok;
+  }
   if (!(COMMANDS as readonly string[]).includes(command)) throw new UsageError(`unknown command \`${command}\`; the commands are ${wordList(COMMANDS, 'and')}`);
   io.stdout.write(`${HELP[command]}\n`);
   return EXIT.ok;

@@ -64,7 +64,7 @@ const PBW_FOR_ADULTS = `the ARDS Network equation is for adults (${PBW_ADULT_FRO
  */
 function withoutPbw(c: DeriveContext): Outcome | null {
   const r = c.evaluate('predicted_body_weight');
-  return r !== null && 'reason' in r && !('value' in r) ? { kind: 'na', reason: `no predicted body weight: ${r.reason}` } : null;
+  return r !== null && 'reason' in r && !('value' in r) ? { kind: 'na', reason: `no predicted body weight: ${r.reason}`, explained: true } : null;
 }
 
 export const pbw = defineDerived({
@@ -83,11 +83,12 @@ export const pbw = defineDerived({
     if (!height || !sex) return c.missing([height, 'height (patient line)'], [sex, 'sex (patient line)']);
     // The equation was made for adults: a child's weight is not read from it (nor a tidal volume per kg).
     const age = c.number('age');
-    if (age !== null && age < PBW_ADULT_FROM_YEARS) return { kind: 'na', reason: `${PBW_FOR_ADULTS}: not worked out at age ${formatShort(age)} y` };
+    // Said where the value would have been (show, the hovers), as nothing can be added to get it.
+    if (age !== null && age < PBW_ADULT_FROM_YEARS) return { kind: 'na', reason: `${PBW_FOR_ADULTS}: not worked out at age ${formatShort(age)} y`, explained: true };
     const male = sex.word === 'male';
     const weight = predictedBodyWeightKg(height.value, male ? 'male' : 'female');
     // Far below 152.4 cm the line reaches 0 kg (about 102 cm for a woman): no weight, rather than "add PBW".
-    if (weight === null) return { kind: 'na', reason: `the ARDS Network equation gives no weight for a height of ${formatShort(height.value, 0)} cm` };
+    if (weight === null) return { kind: 'na', reason: `the ARDS Network equation gives no weight for a height of ${formatShort(height.value, 0)} cm`, explained: true };
     const base = { name: 'base', value: male ? 50 : 45.5, unit: 'kg', decimals: 1, origin: sex.input.origin, note: male ? 'male' : 'female' };
     const notes = height.value < 152.4 ? ['below 152.4 cm the equation was not validated (short adults)'] : [];
     return c.value(weight, [base, height], { notes });
