@@ -4,9 +4,11 @@
  * at its timepoint only). The field registry says it per field (`reading`, `measuredIn`, `setIn`);
  * the timeline, the hovers, the derived values' "add …" and the FHIR export ask `isMeasuredUnder`.
  *
- * - volume (VC, SIMV): the tidal volume and the inspiratory flow are set; pressures are measured.
+ * - volume (VC, SIMV, SIMV-VC): the tidal volume and the inspiratory flow are set; pressures are measured.
+ *   SIMV is run volume-targeted (`SIMV-VC`) or pressure-targeted (`SIMV-PC`); plain `SIMV` is read as
+ *   volume-targeted (common practice, no source).
  * - adaptive (PRVC): the tidal volume is set (the target), the pressure and flow follow it.
- * - pressure (PC, APRV): a pressure (and a rate or timing) is set; the tidal volume and the flow follow
+ * - pressure (PC, SIMV-PC, APRV): a pressure (and a rate or timing) is set; the tidal volume and the flow follow
  *   the lungs and the patient and change from breath to breath.
  * - spontaneous (PS, CPAP): the patient breathes; a support pressure and a backup rate are set.
  * - oscillation (HFOV): a mean airway pressure, an amplitude and a frequency are set.
@@ -27,8 +29,10 @@ export type ModeFamily = 'volume' | 'adaptive' | 'pressure' | 'spontaneous' | 'o
 export const MODE_FAMILIES: Readonly<Record<string, ModeFamily>> = Object.freeze({
   VC: 'volume',
   SIMV: 'volume',
+  'SIMV-VC': 'volume',
   PRVC: 'adaptive',
   PC: 'pressure',
+  'SIMV-PC': 'pressure',
   APRV: 'pressure',
   PS: 'spontaneous',
   CPAP: 'spontaneous',
@@ -44,6 +48,18 @@ export const MODE_FAMILIES: Readonly<Record<string, ModeFamily>> = Object.freeze
  */
 export const MODE_FAMILY_SOURCE =
   'Scottish Intensive Care Society, SICS induction modules, "Ventilation – pressure control ventilation" (web page, year not shown): in pressure control the pressure and normally the rate are set, and the tidal volume depends on the compliance and may change from breath to breath (read in its page on scottishintensivecare.org.uk); the other families: common practice, no source';
+
+/** What each family sets and measures, in a phrase (the hover of a mode). */
+export const FAMILY_MEANING: Readonly<Record<ModeFamily, string>> = Object.freeze({
+  volume: 'the tidal volume and the inspiratory flow are set; the airway pressures are measured',
+  adaptive: 'the tidal volume is set as a target; the pressure and the flow follow it and are measured',
+  pressure: 'a pressure (and a rate or timing) is set; the tidal volume and the flow are measured, of their timepoint only',
+  spontaneous: 'the patient breathes, helped by a set pressure (a backup rate may be set); the tidal volume and the flow are measured, of their timepoint only',
+  oscillation: 'a mean airway pressure, an amplitude and a frequency are set; the mean airway pressure is held as a setting',
+});
+
+/** The mode word read as the volume-targeted form where its targeting is not written (common practice, no source). */
+export const SIMV_UNTARGETED = 'SIMV';
 
 /** The family of a mode word (any case), or null for no mode or a word the registry does not list. */
 export function modeFamily(mode: string | null | undefined): ModeFamily | null {

@@ -15,7 +15,7 @@ import { withheldText, type DerivedValue, type NotApplicable, type TimepointDeri
 import { derivedDef, withheldByReason } from '../derive/registry';
 import { shortAsName } from '../derive/context';
 import { fieldFor, fieldsInSection, loincFor, type FieldDef } from '../fields/registry';
-import { measuredByMode } from '../fields/modes';
+import { FAMILY_MEANING, measuredByMode, modeFamily, SIMV_UNTARGETED } from '../fields/modes';
 import { sectionById, type SectionId } from '../fields/sections';
 import { dayAndClock, describeInput, formatAlternative, formatStated, readUnitName, statedInKpa } from '../present';
 import type { SectionLine, TimepointLine } from '../syntax/tree';
@@ -92,7 +92,7 @@ function fieldMarkdown(result: NoteResult, node: SectionLine, hit: ItemHit): str
   const head = `**${escapeMarkdown(field.label)}** — ${keyWords} on this ${code(node.section)} line`;
   const parts: (string | null)[] = [head, describedMarkdown(field.description)];
   if (stated) {
-    parts.push(valueText(stated, showsKpaOnLine(result, stated.line)), unitText(result, stated, field), originText(result, stated), usableText(stated, field), notGivenText(result, stated), feedsText(result, stated));
+    parts.push(valueText(stated, showsKpaOnLine(result, stated.line)), modeFamilyText(stated), unitText(result, stated, field), originText(result, stated), usableText(stated, field), notGivenText(result, stated), feedsText(result, stated));
   } else if (hit.item.value) {
     parts.push(`${code(hit.item.value.text)} could not be read as ${escapeMarkdown(field.label)}.`);
   }
@@ -281,6 +281,18 @@ function feedsText(result: NoteResult, s: StatedValue): string | null {
     ...explained.map((n) => `Not worked out here: ${escapeMarkdown(derivedDef(n.id)?.short ?? n.label)} — ${escapeMarkdown(n.reason)}.`),
   ].filter((p): p is string => p !== null);
   return parts.length > 0 ? parts.join('\n\n') : null;
+}
+
+/**
+ * The family of a ventilator mode (fields/modes.ts) and what it sets and measures, which decides
+ * whether the other values of its vent lines are settings or measurements; null for another field.
+ */
+function modeFamilyText(stated: StatedValue): string | null {
+  if (stated.fieldId !== 'mode' || stated.word === null) return null;
+  const family = modeFamily(stated.word);
+  if (family === null) return 'Family: none that Pneumark knows: each value on its vent lines is a setting or a reading as its field says (a tidal volume a setting).';
+  const untargeted = stated.word.toUpperCase() === SIMV_UNTARGETED ? ' Plain SIMV is read as volume-targeted; write `SIMV-PC` for SIMV run pressure-targeted, `SIMV-VC` to say it is volume-targeted.' : '';
+  return `Family: **${family}** — ${FAMILY_MEANING[family]}.${untargeted}`;
 }
 
 function carryText(field: FieldDef, section: SectionId, stated: StatedValue | null, mode: string | null, support: NoninvasiveSupport | null): string {
