@@ -335,6 +335,9 @@ const SPEC_LINES: Readonly<Record<string, readonly string[] | { readonly on: str
   '@ day 2 0800': ['PN104'],
   'vent peak 15, ve 8': [],
   'vent vt 480, peak 16': [],
+  'vent vt 480, flow 40': [],
+  'vent vt 450, rate 14': [],
+  'mode SIMV PC': { on: 'vent mode SIMV PC, peep 5', codes: ['PN201'] },
   // Set or measured, by mode: a tidal volume under PS is of its timepoint only (no finding says so).
   'vent mode PS, ps 10, peep 8, vt 380': [],
   'vent vt 450': [],

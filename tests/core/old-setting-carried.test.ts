@@ -3,7 +3,7 @@
 // P/F of PaO2 70 on the FiO2 0.5 of day 1 10:00 is 140, 46 h after the FiO2 was written.
 // The default of 12 h (one shift) is common practice, no source.
 import { describe, expect, it } from 'vitest';
-import { CARRIED_46_H, gasLater } from '../helpers/carried-notes';
+import { CARRIED_46_H, CARRIED_VOLUME, gasLater } from '../helpers/carried-notes';
 import { checkNote } from '../../server/src/core';
 import { NoteSession } from '../../server/src/core/session';
 import type { Settings } from '../../server/src/core/settings';
@@ -20,8 +20,9 @@ describe('a setting carried into a gas from long before (PN326)', () => {
     expect(f).toHaveLength(1);
     expect(f[0]!.severity).toBe('warning');
     expect(f[0]!.range.start.line).toBe(5);
-    expect(f[0]!.message).toBe('PiO2, PAO2, A–a, a/A, P/F and the readings here rest on FiO2 0.50 and PEEP 8 cmH2O, stated at day 1 10:00 (line 3), 46 h before this timepoint: check that they still held at this timepoint, and write them here if so, or the ones that did.');
-    expect(f[0]!.related).toEqual([{ range: { start: { line: 2, character: 36 }, end: { line: 2, character: 52 } }, message: 'FiO2 and PEEP carried from here, day 1 10:00' }]);
+    // The ventilatory ratio rests on the set tidal volume and rate too (VE = VT × set rate, no rate measured here).
+    expect(f[0]!.message).toBe('PiO2, PAO2, A–a, a/A, P/F, VR and the readings here rest on FiO2 0.50, PEEP 8 cmH2O, VT 420 mL and set rate 16 /min, stated at day 1 10:00 (line 3), 46 h before this timepoint: check that they still held at this timepoint, and write them here if so, or the ones that did.');
+    expect(f[0]!.related).toEqual([{ range: { start: { line: 2, character: 19 }, end: { line: 2, character: 52 } }, message: 'FiO2, PEEP, VT and set rate carried from here, day 1 10:00' }]);
     expect(f[0]!.fixes ?? []).toEqual([]);
     // The first gas, on settings of its own timepoint, is not reported.
     expect(found(EXAMPLE).every((x) => x.range.start.line !== 3)).toBe(true);
@@ -56,10 +57,50 @@ describe('a setting carried into a gas from long before (PN326)', () => {
     expect(found('@ day 1 10:00\nvent mode HFOV, map 20, amplitude 40, hz 6, fio2 0.6\n@ day 2 10:00\nabg 7.40/40/70/24')[0]!.message).toContain('OI and the readings here rest on FiO2 0.60 and mean airway pressure 20 cmH2O,');
     expect(found('@ day 1 10:00\nvent mode VC, vt 420, rate 16, peep 8, fio2 0.5\n@ day 2 10:00\nvitals spo2 93')[0]!.message).toMatch(/^S\/F here rests on FiO2 0\.50, stated at day 1 10:00 \(line 2\), 24 h before/);
     const plateau = found('@ day 1 10:00\nvent mode VC, vt 420, rate 16, peep 8, fio2 0.5\n@ day 2 10:00\nvent plateau 25');
-    expect(plateau[0]!.message).toMatch(/^ΔP and Cstat here rest on PEEP 8 cmH2O,/);
+    expect(plateau[0]!.message).toMatch(/^ΔP and Cstat here rest on PEEP 8 cmH2O and VT 420 mL,/);
     expect(plateau[0]!.range.start.line).toBe(3);
     // Nothing measured here rests on them: nothing to report.
     expect(found('@ day 1 10:00\nvent mode VC, vt 420, rate 16, peep 8, fio2 0.5\n@ day 2 10:00\nvitals hr 80')).toEqual([]);
+  });
+
+  it('names a set tidal volume carried into compliance and VE, on the line whose values they combine it with', () => {
+    // Static compliance VT ÷ (Pplat − PEEP), VE = VT × RR ÷ 1000 (standard respiratory mechanics,
+    // common practice, no source): 450 ÷ (24 − 5) and 450 × 16, on a volume set 50 h before.
+    const f = found(CARRIED_VOLUME);
+    expect(f).toHaveLength(1);
+    expect(f[0]!.message).toBe('VE and Cstat here rest on VT 450 mL, stated at day 1 08:00 (line 2), 50 h before this timepoint: check that it still held at this timepoint, and write it here if so, or the one that did.');
+    // The plateau's line: the first line whose stated value is combined with the old setting.
+    expect(f[0]!.range.start.line).toBe(4);
+    expect(f[0]!.related).toEqual([{ range: { start: { line: 1, character: 19 }, end: { line: 1, character: 25 } }, message: 'VT carried from here, day 1 08:00' }]);
+  });
+
+  it('names a set rate carried into VE, and through VE into the ventilatory ratio, with the volume', () => {
+    // VR = VE × PaCO2 ÷ (PBW × 100 × 37.5) (Sinha P et al., Am J Respir Crit Care Med 2009): VE from the
+    // volume and rate set 50 h before, the rate measured nowhere at this timepoint.
+    const f = found(`patient sex female, height 165 cm
+${CARRIED_VOLUME.replace('vitals    rr 16', 'abg       ph 7.38, pco2 42, po2 80')}`);
+    expect(f).toHaveLength(1);
+    expect(f[0]!.message).toMatch(/^Cstat and VR here rest on VT 450 mL and set rate 14 \/min, stated at day 1 08:00 \(line 3\), 50 h before this timepoint/);
+    // VR combines the gas's PaCO2 with them: the gas's line asks.
+    expect(f[0]!.range.start.line).toBe(6);
+    // With no PBW there is no VR, and the gas's P/F rests on the FiO2 written here: the gas's line
+    // asks for nothing old, the plateau's does.
+    const plateauOnly = found(CARRIED_VOLUME.replace('vitals    rr 16', 'abg       ph 7.38, pco2 42, po2 80'));
+    expect(plateauOnly.map((x) => [x.range.start.line, x.message.slice(0, x.message.indexOf(','))])).toEqual([[4, 'Cstat here rests on VT 450 mL']]);
+  });
+
+  it('reports the gas line where the gas rests on an old setting, naming every old setting once', () => {
+    const f = found(CARRIED_VOLUME.replace('vent      peep 5, fio2 0.4\n', '').replace('vitals    rr 16', 'abg       ph 7.38, pco2 42, po2 80'));
+    expect(f).toHaveLength(1);
+    expect(f[0]!.range.start.line).toBe(4);
+    expect(f[0]!.message).toMatch(/^PiO2, PAO2, A–a, a\/A, P\/F, ΔP, Cstat and the readings here rest on FiO2 0\.40, PEEP 5 cmH2O and VT 450 mL, stated at day 1 08:00 \(line 2\), 50 h before/);
+  });
+
+  it('is silent for a tidal volume the mode measures (never carried), a volume restated, and one within the limit', () => {
+    // Under PS the volume is measured: none is carried, and VE asks for the measured one.
+    expect(found(CARRIED_VOLUME.replace('mode VC, vt 450, rate 14', 'mode PS, ps 10, vt 450, rate 14'))).toEqual([]);
+    expect(found(CARRIED_VOLUME.replace('vent      peep 5, fio2 0.4', 'vent      vt 450, peep 5, fio2 0.4'))).toEqual([]);
+    expect(found(CARRIED_VOLUME.replace('@ day 3 10:00', '@ day 1 19:00'))).toEqual([]);
   });
 
   it('is silent where no times are written, where a time is unknown, and for a header value', () => {

@@ -9,7 +9,7 @@ describe('word values (PN205)', () => {
   it('a mode takes any word, but not a number', () => {
     expect(pn205('@ 08:00\nvent mode VC, peep 5')).toEqual([]);
     expect(pn205('@ 08:00\nvent mode Bilevel, peep 5')).toEqual([]);
-    expect(pn205('@ 08:00\nvent mode 10, peep 5')).toEqual(['`10` is a number, not a ventilator mode: write a word, e.g. VC, PC, PRVC, PS, SIMV, APRV, CPAP, HFOV.']);
+    expect(pn205('@ 08:00\nvent mode 10, peep 5')).toEqual(['`10` is a number, not a ventilator mode: write a word, e.g. VC, PC, PRVC, PS, SIMV, SIMV-VC, SIMV-PC, APRV, CPAP, HFOV.']);
     expect(pn205('@ 08:00\nvent mode 7.5')).toHaveLength(1);
   });
 

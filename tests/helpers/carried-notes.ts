@@ -19,3 +19,16 @@ export const gasLater = (time: string, then = ''): string => [
   ...(then ? [then] : []),
   'abg       ph 7.38, pco2 42, po2 70',
 ].join('\n');
+
+/**
+ * A volume and a rate set at day 1 08:00 and carried 50 h to a plateau and a measured rate, with
+ * PEEP and FiO2 written again there: compliance and VE rest on the old volume alone.
+ */
+export const CARRIED_VOLUME = [
+  '@ day 1 08:00',
+  'vent      mode VC, vt 450, rate 14, peep 5, fio2 0.4',
+  '@ day 3 10:00',
+  'vent      peep 5, fio2 0.4',
+  'vent      plateau 24',
+  'vitals    rr 16',
+].join('\n');

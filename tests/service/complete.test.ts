@@ -135,7 +135,8 @@ describe('the set inspiratory pressure', () => {
 
 describe('words', () => {
   it('modes after `mode`, sexes after `sex`, gas units after `units gas`, devices first on an oxygen line', () => {
-    expect(labels('vent mode |')).toEqual(['VC', 'PC', 'PRVC', 'PS', 'SIMV', 'APRV', 'CPAP', 'HFOV']);
+    expect(labels('vent mode |')).toEqual(['VC', 'PC', 'PRVC', 'PS', 'SIMV', 'SIMV-VC', 'SIMV-PC', 'APRV', 'CPAP', 'HFOV']);
+    expect(labels('vent mode simv-|')).toEqual(['SIMV-VC', 'SIMV-PC']);
     expect(labels('patient age 60 y, sex |')).toEqual(['female', 'male']);
     expect(labels('units gas |')).toEqual(['mmHg', 'kPa']);
     expect(labels('oxygen |')).toEqual(['room air', 'cannula', 'mask', 'venturi', 'reservoir', 'hfnc', 'niv', 'cpap']);

@@ -338,6 +338,10 @@ function otherUnitIssue(item: ItemNode, field: FieldDef, line: number, readUnit:
 
 function unknownKeyIssue(item: ItemNode, section: SectionId, line: number, lineItems: readonly ItemNode[], lineText: string): ReadIssue | null {
   const key = item.key!;
+  if (section === 'vent') {
+    const joined = simvTargetIssue(item, line, lineItems, lineText);
+    if (joined !== null) return joined;
+  }
   if (section === 'oxygen') {
     // The first words of an oxygen line are its device: a misspelt device of several words
     // (`oxygen room aor`, `oxygen rom air 2`) reads as unknown keys, and is reported once, on all
@@ -389,6 +393,34 @@ function unknownKeyIssue(item: ItemNode, section: SectionId, line: number, lineI
     span: key.span,
     message: `\`${key.text}\` is ${devices.length > 0 ? 'neither a device nor a key' : 'not a key'} of ${section} lines${where}.${hint}`,
     fixes,
+  };
+}
+
+/** The targets SIMV is written with, as a word after it: `VC` (volume-targeted) and `PC` (pressure-targeted). */
+const SIMV_TARGETS: Readonly<Record<string, string>> = { vc: 'volume', pc: 'pressure' };
+
+/**
+ * `mode SIMV PC`: SIMV's target written after it with a blank, which reads as a key of its own. A
+ * mode is one word: the finding offers, preferred, the two joined by a hyphen as written
+ * (`SIMV-PC`, a mode of the pressure family; `SIMV-VC`, of the volume family). Only for a bare `VC`
+ * or `PC` right after the mode word `SIMV`, with blanks alone between them; null otherwise.
+ */
+function simvTargetIssue(item: ItemNode, line: number, lineItems: readonly ItemNode[], lineText: string): ReadIssue | null {
+  const key = item.key!;
+  const target = SIMV_TARGETS[key.text.toLowerCase()];
+  if (target === undefined || item.value !== null || item.unit !== null) return null;
+  const before = lineItems[lineItems.indexOf(item) - 1];
+  const mode = before?.field?.id === 'mode' ? before.value : null;
+  if (mode === null || mode === undefined || mode.kind !== 'word' || mode.text.toLowerCase() !== 'simv' || before!.unit !== null) return null;
+  if (lineText.slice(mode.span.end, key.span.start).trim() !== '') return null;
+  const joined = `${mode.text}-${key.text}`;
+  const span = { start: mode.span.start, end: key.span.end };
+  return {
+    check: 'unknown-key',
+    line,
+    span: key.span,
+    message: `\`${key.text}\` is not a key of vent lines: a mode is one word, and SIMV run ${target}-targeted is written \`SIMV-${key.text.toUpperCase()}\`. Join them with a hyphen: write \`${joined}\`.`,
+    fixes: [{ title: `Write the mode as \`${joined}\``, edits: renameKeepingColumns(lineText, span, joined), preferred: true }],
   };
 }
 

@@ -43,7 +43,7 @@ import type { ItemNode, LineEdit, LineFix, LineNode, NoteTree, SectionLine, Span
 import { itemsRemovalSpan } from '../syntax/tree';
 import { MAX_DAY } from '../syntax/parser';
 import { OSCILLATION_MODE } from '../physiology/mechanics';
-import { isMeasuredUnder, modeFamily } from '../fields/modes';
+import { familyInForce, isMeasuredIn, isMeasuredUnder, modeFamily, type ModeFamily } from '../fields/modes';
 import { PER_KG_PBW, pbwFrom, VT_PER_KG_HARD_MAX } from './per-kg-volume';
 import { barometricFromAltitude } from './ambient';
 import { noninvasiveSupport } from './noninvasive-support';
@@ -949,10 +949,12 @@ function apply(section: SectionId, stated: (StatedValue | undefined)[], from: nu
       // Under the mode in force each value is a setting or a measurement as its field's row says for
       // the mode's family (fields/modes.ts): a tidal volume under PS is measured, of its timepoint
       // only; the mean airway pressure in HFOV is set, held like a setting.
+      // With no mode, under NIV or CPAP of the oxygen line in force, a line that states only what
+      // those breaths measure (`vent vt 480, peak 16`) is read under them; any other line ends them.
       const modeAfter = mode?.word ?? before ?? null;
-      readByMode(stated, from, to, modeAfter);
+      readByMode(stated, from, to, ventFamily(stated, from, to, modeAfter, state.oxygen));
       // A line of readings only (`vent peak 15, ve 8`) starts no ventilation: the support in force stays.
-      if (!statesVentSetting(stated, from, to, state.oxygen)) break;
+      if (!statesVentSetting(stated, from, to)) break;
       state.oxygen = EMPTY;
       // A new mode starts a new set of settings; PEEP and FiO2 carry across it. Modes are words of
       // any case: one outside the registry's (`ASV`, then `asv`) is the same mode restated. A mode
@@ -980,22 +982,28 @@ function apply(section: SectionId, stated: (StatedValue | undefined)[], from: nu
 }
 
 /**
- * Whether the vent line `stated[from, to)` states a ventilator setting, and so ends the oxygen line
- * in force and updates the ventilator's settings. A line of readings off the device only (peak,
- * plateau, measured minute volume, end-tidal CO2) does neither. Under NIV or CPAP (an oxygen line
- * with a device that gives breaths) a tidal volume on such a line is the exhaled volume the device
- * measures: it is made a reading of its timepoint (`AsReading`, in `stated`) and ends nothing.
+ * Whether the vent line `stated[from, to)`, read under the breaths in force (`readByMode`), states a
+ * ventilator setting, and so ends the oxygen line in force and updates the ventilator's settings. A
+ * line of readings only (peak, plateau, measured minute volume, end-tidal CO2; what the breaths in
+ * force measure, a tidal volume under PS or under NIV) does neither.
  */
-function statesVentSetting(stated: (StatedValue | undefined)[], from: number, to: number, oxygen: HeldMap): boolean {
-  let volumes = 0;
-  for (let k = from; k < to; k++) {
-    const s = stated[k]!;
-    if (s.hereOnly) continue;
-    if (s.fieldId !== 'vt' || !givesBreaths(oxygen)) return true;
-    volumes++;
-  }
-  if (volumes > 0) for (let k = from; k < to; k++) if (stated[k]!.fieldId === 'vt') stated[k] = new ReadAs(stated[k]!, true);
+function statesVentSetting(stated: readonly (StatedValue | undefined)[], from: number, to: number): boolean {
+  for (let k = from; k < to; k++) if (!stated[k]!.hereOnly) return true;
   return false;
+}
+
+/**
+ * The family of the breaths a vent line's values are read under (`familyInForce`): the mode in force
+ * after it (`mode`); with none, the NIV or CPAP of the oxygen line held, if every value on the line is
+ * one those breaths measure (`isMeasuredIn`: the line is one of readings and the support stays),
+ * else none (the line states a setting, which ends the support and starts ventilation with no mode).
+ */
+function ventFamily(stated: readonly (StatedValue | undefined)[], from: number, to: number, mode: string | null, oxygen: HeldMap): ModeFamily | null {
+  if (mode !== null || oxygen.size === 0) return modeFamily(mode);
+  const family = familyInForce(null, noninvasiveSupport(oxygen.get('device')?.stated.word ?? null, oxygen));
+  if (family === null) return null;
+  for (let k = from; k < to; k++) if (!isMeasuredIn(stated[k]!.field, family)) return null;
+  return family;
 }
 
 /** Reads `held`, stated on a line above `stated[from]` at this timepoint and held as a setting, as a measurement of its timepoint (`ReadAs`). */
@@ -1005,31 +1013,22 @@ function measuredAbove(stated: (StatedValue | undefined)[], from: number, held: 
 
 /**
  * Reads each value among `stated[from, to)`, a vent line's, as a setting or a measurement under
- * `mode` (`isMeasuredUnder`: the field's row for the mode's family). Under no mode, or one the
- * registry does not list, each stays as its field says.
+ * breaths of `family` (`isMeasuredIn`: the field's row for the family). Under no family (no mode and
+ * no NIV or CPAP, or a mode the registry does not list), each stays as its field says.
  */
-function readByMode(stated: (StatedValue | undefined)[], from: number, to: number, mode: string | null): void {
-  if (modeFamily(mode) === null) return;
+function readByMode(stated: (StatedValue | undefined)[], from: number, to: number, family: ModeFamily | null): void {
+  if (family === null) return;
   for (let k = from; k < to; k++) {
     const s = stated[k]!;
-    const hereOnly = isMeasuredUnder(s.field, mode);
+    const hereOnly = isMeasuredIn(s.field, family);
     if (hereOnly !== s.hereOnly) stated[k] = new ReadAs(s, hereOnly);
   }
 }
 
 /**
- * Whether the oxygen line held is non-invasive support that gives breaths and measures their
- * volume (NIV or CPAP, by its device or its pressures: `noninvasiveSupport`).
- */
-function givesBreaths(oxygen: HeldMap): boolean {
-  if (oxygen.size === 0) return false;
-  return noninvasiveSupport(oxygen.get('device')?.stated.word ?? null, oxygen) !== null;
-}
-
-/**
  * A value read as a reading of its timepoint though its field is a setting (`hereOnly`: a tidal
- * volume on a vent line of readings under NIV, see `statesVentSetting`, or one written under a
- * mode that sets a pressure, see `readByMode`), in force where it is stated and never carried; or
+ * volume written under a mode that sets a pressure, or on a vent line of readings under NIV or
+ * CPAP, see `readByMode`), in force where it is stated and never carried; or
  * as a setting though its field is a reading (the mean airway pressure set on an oscillator, see
  * `readByMode`), held and carried.
  */

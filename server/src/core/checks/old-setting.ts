@@ -1,13 +1,15 @@
 /**
- * A gas read on a setting carried from long before (PN326). A setting carries forward until the
+ * A gas or a reading read on a setting carried from long before (PN326). A setting carries forward until the
  * note states it again (format rule): right for a note written in one sitting, but a P/F worked out
- * on an FiO2 written a day and a half earlier is only as current as that line. One finding per
- * timepoint, on the gas line, naming the settings older than `carriedSettingHours`, their values,
+ * on an FiO2 written a day and a half earlier, or a compliance on a tidal volume set two days
+ * before, is only as current as that line. One finding per timepoint, on the line that asks for
+ * them (`askingLine`), naming the settings older than `carriedSettingHours`, their values,
  * when and where they were written, and how long before; the values themselves are left as the
  * format reads them. No fix: only the writer knows the settings the gas was drawn on.
  */
 import type { InputValue, Timepoint } from '../analysis/model';
 import type { DerivedValue, TimepointDerivation } from '../derive/model';
+import { computedValueOf } from '../derive/registry';
 import { fieldById } from '../fields/registry';
 import { carriedFromText, carriedMinutes, formatStated, timeText, type CarriedOrigin } from '../present';
 import { toRange, type LineNode } from '../syntax/tree';
@@ -17,9 +19,12 @@ import { defineCheck } from './check';
 /**
  * The settings a gas's oxygenation values rest on: the FiO2 (or the oxygen device and flow it is
  * read from), the end-expiratory pressure (PEEP, or EPAP or CPAP on an oxygen line) and the mean
- * airway pressure an oscillator sets.
+ * airway pressure an oscillator sets; and those the mechanics and ventilation values rest on: the
+ * set tidal volume and rate (VE, the ventilatory ratio, the compliances, mechanical power). A value
+ * carried is a setting under the mode in force: what the mode measures (a tidal volume under PS,
+ * fields/modes.ts) is of its timepoint only and never carried, so it is never named here.
  */
-const WATCHED: readonly string[] = ['fio2', 'device', 'o2_flow', 'peep', 'epap', 'cpap_level', 'mean_airway_pressure'];
+const WATCHED: readonly string[] = ['fio2', 'device', 'o2_flow', 'peep', 'epap', 'cpap_level', 'mean_airway_pressure', 'vt', 'vent_rate'];
 
 /** A setting in force here, carried from more than the limit before. */
 interface OldSetting {
@@ -55,7 +60,8 @@ function restsOn(d: DerivedValue, derivation: TimepointDerivation, old: readonly
     if (o.kind === 'carried' && old.some((x) => x.origin.line === o.line && x.origin.span.start === o.span.start)) return true;
     if (o.kind === 'derived') {
       const id = o.id;
-      const inner = derivation.derived.find((v) => v.id === id);
+      // Reported here or only inside this one (the VE of a ventilatory ratio at a gas with no VE input stated).
+      const inner = computedValueOf(derivation, id);
       if (inner?.usesCarried && restsOn(inner, derivation, old, depth + 1)) return true;
     }
   }
@@ -75,15 +81,22 @@ function sectionSpan(node: LineNode | undefined): { start: number; end: number }
   return node?.kind === 'section' ? node.sectionToken.span : { start: 0, end: node?.text.length ?? 0 };
 }
 
-/** The line of the gas: the PaO2 or SpO2 stated here, else the first line of what rests on the settings. */
-function gasLine(tp: Timepoint, lines: readonly (number | null)[]): number | null {
+/**
+ * The line that asks for the old settings: of the lines here whose stated values the derived values
+ * and readings combine with them (`lines`, each value's anchor), the gas's (its PaO2 or SpO2) where
+ * it is one of them, else the first in the note (a plateau's, where compliance rests on an old
+ * tidal volume and the gas's P/F on an FiO2 written here).
+ */
+function askingLine(tp: Timepoint, lines: readonly (number | null)[]): number | null {
+  let first: number | null = null;
+  for (const line of lines) if (line !== null && line >= tp.startLine && line <= tp.endLine && (first === null || line < first)) first = line;
+  if (first === null) return null;
   for (const id of ['pao2', 'spo2']) {
     if (tp.values.originOf(id) !== 'here') continue;
     const v = tp.values.get(id);
-    if (v) return v.stated.line;
+    if (v && lines.includes(v.stated.line)) return v.stated.line;
   }
-  for (const line of lines) if (line !== null && line >= tp.startLine && line <= tp.endLine) return line;
-  return null;
+  return first;
 }
 
 /** `FiO2`, `PEEP`, and for a field without a short name its label in lower case (`mean airway pressure`, `oxygen device`). */
@@ -95,13 +108,13 @@ function settingName(id: string): string {
 export const oldSettingCarried = defineCheck({
   code: 'PN326',
   alias: 'old-setting-carried',
-  title: 'Gas read on a setting carried from long before',
+  title: 'Values resting on a setting carried from long before',
   severity: 'warning',
   tags: ['timeline'],
   doc: {
-    fires: 'The derived values or readings of a gas (P/F, A–a gradient, a/A, oxygenation index, S/F, the Berlin oxygenation band, …) rest on an FiO2, PEEP, EPAP, CPAP level, oxygen device or flow, or mean airway pressure that was written at a timepoint more than `carriedSettingHours` hours earlier (12 h by default) and carried forward since. One finding per timepoint, on the gas line, naming each such setting, its value, the day, time and line it was written on, and how long before. Not reported where a time is unknown (a note without times, a day without a time of day), for a value of the header, or where the setting was written again (also with the same value) within the limit. A warning, like PN324: the numbers may rest on a setting the gas was not drawn on.',
-    example: '@ day 1 10:00\nvent mode VC, vt 420, rate 16, peep 8, fio2 0.5\n@ day 3 08:00\nabg 7.38/42/70/24',
-    fix: 'If the settings still held when the gas was drawn, write them again at its timepoint (`vent peep 8, fio2 0.5`); if they had changed, write the ones it was drawn on. Where a note is meant to carry settings for longer, raise `carriedSettingHours`, or switch the check off.',
+    fires: 'The derived values or readings of a timepoint rest on a setting written at a timepoint more than `carriedSettingHours` hours earlier (12 h by default) and carried forward since: those of a gas (P/F, A–a gradient, a/A, oxygenation index, S/F, the Berlin oxygenation band, …) on an FiO2, PEEP, EPAP, CPAP level, oxygen device or flow, or mean airway pressure; and the mechanics and ventilation values (minute ventilation, the ventilatory ratio, the compliances, mechanical power) on a set tidal volume or set rate, or a PEEP. A tidal volume the mode in force measures (under PS, PC, NIV) is never carried, so it is never named. One finding per timepoint, naming each such setting, its value, the day, time and line it was written on, and how long before, on the line whose values they are combined with: the gas line where the gas rests on them, else the first such line (the plateau of a compliance). Not reported where a time is unknown (a note without times, a day without a time of day), for a value of the header, or where the setting was written again (also with the same value) within the limit. A warning, like PN324: the numbers may rest on a setting the gas or the reading was not taken on.',
+    example: '@ day 1 08:00\nvent mode VC, vt 450, rate 14, peep 5, fio2 0.4\n@ day 3 10:00\nvent peep 5, fio2 0.4\nvent plateau 24\nvitals rr 16',
+    fix: 'If the settings still held when the gas was drawn or the reading taken, write them again at its timepoint (`vent peep 8, fio2 0.5`, `vent vt 450, rate 14`); if they had changed, write the ones in force then. Where a note is meant to carry settings for longer, raise `carriedSettingHours`, or switch the check off.',
   },
   source: 'format rule (grammar/README.md: carry-forward); the 12 h limit, about a shift, is common practice, no source',
   runTimepoint(ctx) {
@@ -118,7 +131,7 @@ export const oldSettingCarried = defineCheck({
     // Only the settings something here rests on are named.
     const used = old.filter((o) => readings.some((r) => r.basis.includes(o.id)) || resting.some((d) => restsOn(d, derivation, [o])));
     if (used.length === 0) return;
-    const line = gasLine(tp, [...readings.map((r) => r.line), ...resting.map((d) => d.line)]);
+    const line = askingLine(tp, [...readings.map((r) => r.line), ...resting.map((d) => d.line)]);
     if (line === null) return;
     // Grouped by the line they were written on, in the order of the lines.
     const groups = new Map<number, OldSetting[]>();

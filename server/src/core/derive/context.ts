@@ -448,10 +448,15 @@ export class DeriveContext {
     return { kind: 'value', value, terms: withoutNulls(terms), extras: extra };
   }
 
-  /** Whether the mode in force measures field `id` rather than sets it, though a setting by default (a tidal volume under PS: fields/modes.ts). */
+  /**
+   * Whether the breaths in force measure field `id` rather than set it, though a setting by default
+   * (fields/modes.ts: a tidal volume under PS, or with no mode under NIV or CPAP of an oxygen line).
+   */
   measuredByMode(id: string): boolean {
     const field = fieldById(id);
-    return field !== undefined && measuredByMode(field, this.word('mode')?.word ?? null);
+    if (field === undefined) return false;
+    const mode = this.word('mode')?.word ?? null;
+    return measuredByMode(field, mode, mode === null ? this.noninvasiveSupport() : null);
   }
 
   /**

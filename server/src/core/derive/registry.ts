@@ -210,6 +210,11 @@ class TimepointValues implements TimepointDerivation {
     const r = this.ctx.evaluateSlot(slot);
     return r && 'value' in r ? r : null;
   }
+
+  /** The value `id` as the values here compute it, reported here or not (the VE inside a ventilatory ratio where no input of VE is stated). */
+  computed(id: string): DerivedValue | null {
+    return this.ctx.derivedValue(id);
+  }
 }
 
 /** A derivation of the given values only (none by default): nothing missing, no readings. */
@@ -219,6 +224,15 @@ export function derivationOf(timepoint: number, derived: readonly DerivedValue[]
 
 export function deriveTimepoint(tp: Timepoint, settings: Settings): TimepointDerivation {
   return new TimepointValues(tp, settings);
+}
+
+/**
+ * A derived value as computed at a timepoint, also where it is not reported there but is an input of
+ * one that is (`computed`); a derivation of given values only has those.
+ */
+export function computedValueOf(derivation: TimepointDerivation, id: string): DerivedValue | null {
+  if (derivation instanceof TimepointValues) return derivation.computed(id);
+  return derivation.derived.find((d) => d.id === id) ?? null;
 }
 
 /** A derived value reported at a timepoint, without deriving the rest when the derivation allows it. */

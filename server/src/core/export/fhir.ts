@@ -266,9 +266,9 @@ export function loincMismatch(loinc: LoincCode, field: FieldDef, section: Sectio
   // Settings some ventilator modes do not set (the registry's `measuredIn`, per mode family: no set tidal
   // volume under pressure-controlled or -supported breaths, no set inspiratory flow there nor under PRVC).
   const notSet = field.measuredIn !== undefined ? field.label.toLowerCase() : null;
-  // Under NIV or CPAP with no ventilator mode, a tidal volume is one the device measured (a vent line of readings).
-  if (notSet && /\bsetting\b/.test(name) && written.mode === null && written.support !== null) return `${loinc.code} is a set ${notSet}, and ${SUPPORT_NAMES[written.support]} sets none`;
-  if (notSet && /\bsetting\b/.test(name) && written.mode !== null && measuredByMode(field, written.mode)) return `${loinc.code} is a set ${notSet}, and ${written.mode} sets none`;
+  // The one rule (fields/modes.ts): under the mode, or with none under NIV or CPAP (a vent line of readings).
+  const support = written.mode === null ? written.support : null;
+  if (notSet && /\bsetting\b/.test(name) && measuredByMode(field, written.mode, support)) return `${loinc.code} is a set ${notSet}, and ${written.mode ?? SUPPORT_NAMES[support!]} sets none`;
   // A high-flow device's flow is the total gas flow (air and oxygen blended to the FiO2), not the oxygen flow.
   if (/^Inhaled oxygen flow rate\b/.test(name) && device === 'hfnc') return `${loinc.code} is the oxygen flow, the value is the total gas flow of a high-flow device`;
   if (name.includes('[Mass/volume]') && field.dimension !== 'mass-concentration') return `${loinc.code} is a mass concentration, the value is not`;

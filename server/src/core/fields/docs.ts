@@ -6,7 +6,7 @@ import { VT_USUAL_MIN_ML_PER_KG } from '../analysis/bounds';
 import { displayUnit } from '../analysis/read-value';
 import { FIELDS, loincCodesOf, loincFor, type FieldDef, type LoincCode } from './registry';
 import { SECTIONS } from './sections';
-import { modesOfFamilies } from './modes';
+import { MODE_FAMILIES, modesOfFamilies, type ModeFamily } from './modes';
 import { UNITS } from './units';
 import { DERIVED_TABLE_END, DERIVED_TABLE_START, renderDerivedTable } from '../derive/docs';
 import { BLANK_TABLE_END, BLANK_TABLE_START, renderBlankTable } from '../syntax/blanks';
@@ -86,8 +86,20 @@ function renderUnitTable(): string[] {
  * measured under some mode families (`measuredIn`) or set under some (`setIn`) names those modes.
  */
 function carryNote(f: FieldDef): string {
+  if (f.id === 'mode') return modeFamiliesNote();
   if (f.reading) return f.setIn ? ` (measured, does not carry; set in ${modesOfFamilies(f.setIn).join(', ')}, where it carries)` : ' (measured, does not carry)';
   return f.measuredIn ? ` (measured under ${modesOfFamilies(f.measuredIn).join(', ')}: does not carry there)` : '';
+}
+
+/**
+ * The families of the modes the registry lists, beside the mode (fields/modes.ts): a family decides
+ * whether the other values of a vent line are settings or measurements.
+ */
+function modeFamiliesNote(): string {
+  const families: ModeFamily[] = [];
+  for (const family of Object.values(MODE_FAMILIES)) if (!families.includes(family)) families.push(family);
+  const groups = families.map((family) => `${modesOfFamilies([family]).join(', ')} ${family}`);
+  return ` (by family: ${groups.join('; ')}; SIMV run volume-targeted is \`SIMV-VC\`, pressure-targeted \`SIMV-PC\`, and plain \`SIMV\` is read as volume-targeted, common practice, no source)`;
 }
 
 export function renderFieldTable(): string {

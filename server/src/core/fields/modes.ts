@@ -4,17 +4,24 @@
  * at its timepoint only). The field registry says it per field (`reading`, `measuredIn`, `setIn`);
  * the timeline, the hovers, the derived values' "add …" and the FHIR export ask `isMeasuredUnder`.
  *
- * - volume (VC, SIMV): the tidal volume and the inspiratory flow are set; pressures are measured.
+ * - volume (VC, SIMV, SIMV-VC): the tidal volume and the inspiratory flow are set; pressures are measured.
+ *   SIMV is run volume-targeted (`SIMV-VC`) or pressure-targeted (`SIMV-PC`); plain `SIMV` is read as
+ *   volume-targeted (common practice, no source).
  * - adaptive (PRVC): the tidal volume is set (the target), the pressure and flow follow it.
- * - pressure (PC, APRV): a pressure (and a rate or timing) is set; the tidal volume and the flow follow
+ * - pressure (PC, SIMV-PC, APRV): a pressure (and a rate or timing) is set; the tidal volume and the flow follow
  *   the lungs and the patient and change from breath to breath.
  * - spontaneous (PS, CPAP): the patient breathes; a support pressure and a backup rate are set.
  * - oscillation (HFOV): a mean airway pressure, an amplitude and a frequency are set.
  *
- * A mode word outside this list (`ASV`), or no mode at all, has no family: each field is then as its
- * row says by default (a tidal volume a setting, as before).
+ * Non-invasive support on an oxygen line (NIV, CPAP), where no mode is in force, gives spontaneous
+ * breaths (`SUPPORT_FAMILY`): a vent line under it that states only what that family measures is a
+ * line of readings, and ends nothing.
+ *
+ * A mode word outside this list (`ASV`), or no mode and no such support, has no family: each field is
+ * then as its row says by default (a tidal volume a setting, as before).
  */
 import type { FieldDef } from './registry';
+import type { NoninvasiveSupport } from '../analysis/noninvasive-support';
 
 export type ModeFamily = 'volume' | 'adaptive' | 'pressure' | 'spontaneous' | 'oscillation';
 
@@ -22,8 +29,10 @@ export type ModeFamily = 'volume' | 'adaptive' | 'pressure' | 'spontaneous' | 'o
 export const MODE_FAMILIES: Readonly<Record<string, ModeFamily>> = Object.freeze({
   VC: 'volume',
   SIMV: 'volume',
+  'SIMV-VC': 'volume',
   PRVC: 'adaptive',
   PC: 'pressure',
+  'SIMV-PC': 'pressure',
   APRV: 'pressure',
   PS: 'spontaneous',
   CPAP: 'spontaneous',
@@ -40,6 +49,18 @@ export const MODE_FAMILIES: Readonly<Record<string, ModeFamily>> = Object.freeze
 export const MODE_FAMILY_SOURCE =
   'Scottish Intensive Care Society, SICS induction modules, "Ventilation – pressure control ventilation" (web page, year not shown): in pressure control the pressure and normally the rate are set, and the tidal volume depends on the compliance and may change from breath to breath (read in its page on scottishintensivecare.org.uk); the other families: common practice, no source';
 
+/** What each family sets and measures, in a phrase (the hover of a mode). */
+export const FAMILY_MEANING: Readonly<Record<ModeFamily, string>> = Object.freeze({
+  volume: 'the tidal volume and the inspiratory flow are set; the airway pressures are measured',
+  adaptive: 'the tidal volume is set as a target; the pressure and the flow follow it and are measured',
+  pressure: 'a pressure (and a rate or timing) is set; the tidal volume and the flow are measured, of their timepoint only',
+  spontaneous: 'the patient breathes, helped by a set pressure (a backup rate may be set); the tidal volume and the flow are measured, of their timepoint only',
+  oscillation: 'a mean airway pressure, an amplitude and a frequency are set; the mean airway pressure is held as a setting',
+});
+
+/** The mode word read as the volume-targeted form where its targeting is not written (common practice, no source). */
+export const SIMV_UNTARGETED = 'SIMV';
+
 /** The family of a mode word (any case), or null for no mode or a word the registry does not list. */
 export function modeFamily(mode: string | null | undefined): ModeFamily | null {
   if (mode === null || mode === undefined) return null;
@@ -47,11 +68,34 @@ export function modeFamily(mode: string | null | undefined): ModeFamily | null {
 }
 
 /**
- * Whether a value of `field` written under `mode` (a word, or null for none) is a measurement of its
- * timepoint rather than a setting: the field's row for the mode's family, else its default (`reading`).
+ * The family of the breaths non-invasive support on an oxygen line gives (NIV or CPAP): the patient
+ * breathes, helped by a pressure, as under PS or the CPAP mode of a ventilator, so its family is
+ * theirs (common practice, no source). A tidal volume or a flow read off the device is measured.
  */
-export function isMeasuredUnder(field: FieldDef, mode: string | null | undefined): boolean {
-  const family = modeFamily(mode);
+export const SUPPORT_FAMILY: ModeFamily = 'spontaneous';
+
+/**
+ * The family of the breaths in force: the ventilator's mode (`mode`, a word or null for none); where
+ * no mode is in force, the non-invasive support of the oxygen line in force (`support`, NIV or CPAP:
+ * `SUPPORT_FAMILY`). A mode word the registry does not list (`ASV`) has none, whatever the support.
+ */
+export function familyInForce(mode: string | null | undefined, support: NoninvasiveSupport | null = null): ModeFamily | null {
+  if (mode !== null && mode !== undefined) return modeFamily(mode);
+  return support === null ? null : SUPPORT_FAMILY;
+}
+
+/**
+ * The one rule for whether a value of `field` written on a `vent` line is a measurement of its
+ * timepoint rather than a setting: the field's row for the family of the breaths in force
+ * (`familyInForce`: the mode, or with none the NIV or CPAP of the oxygen line), else its default
+ * (`reading`). The timeline, the derived values' "add …", the hover and the FHIR export ask it.
+ */
+export function isMeasuredUnder(field: FieldDef, mode: string | null | undefined, support: NoninvasiveSupport | null = null): boolean {
+  return isMeasuredIn(field, familyInForce(mode, support));
+}
+
+/** Whether a value of `field` is measured under breaths of `family` (null: none known, the field's default). */
+export function isMeasuredIn(field: FieldDef, family: ModeFamily | null): boolean {
   if (family !== null) {
     if (field.setIn?.includes(family)) return false;
     if (field.measuredIn?.includes(family)) return true;
@@ -59,9 +103,9 @@ export function isMeasuredUnder(field: FieldDef, mode: string | null | undefined
   return field.reading === true;
 }
 
-/** Whether `field` is a setting by default but measured under the mode family of `mode` (a tidal volume under PS). */
-export function measuredByMode(field: FieldDef, mode: string | null | undefined): boolean {
-  return field.reading !== true && isMeasuredUnder(field, mode);
+/** Whether `field` is a setting by default but measured under the breaths in force (a tidal volume under PS, or under NIV with no mode). */
+export function measuredByMode(field: FieldDef, mode: string | null | undefined, support: NoninvasiveSupport | null = null): boolean {
+  return field.reading !== true && isMeasuredUnder(field, mode, support);
 }
 
 /** The families in which a field is measured though a setting by default, or set though a reading by default: for docs. */

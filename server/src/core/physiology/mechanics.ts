@@ -37,12 +37,12 @@ export type Sex = 'male' | 'female';
 
 /**
  * Ventilator modes that deliver mandatory breaths, at least the set number a minute: volume
- * control, pressure control, PRVC and SIMV (common practice, no source). Pressure support and
+ * control, pressure control, PRVC and SIMV, volume- or pressure-targeted (common practice, no source). Pressure support and
  * CPAP deliver none; APRV and HFOV are set otherwise: APRV's rate is the release frequency, and
  * with none the patient breathes spontaneously at the high pressure, a CPAP-like state that may be
  * meant (common practice, no source), so a rate of 0 there is no mistake of the kind PN312 reports.
  */
-export const MODES_WITH_SET_BREATHS: ReadonlySet<string> = new Set(['VC', 'PC', 'PRVC', 'SIMV']);
+export const MODES_WITH_SET_BREATHS: ReadonlySet<string> = new Set(['VC', 'PC', 'PRVC', 'SIMV', 'SIMV-VC', 'SIMV-PC']);
 
 /**
  * Ventilator modes in which the patient sets the rate of breathing: pressure support and CPAP

@@ -10,12 +10,12 @@ import type { NoteResult } from '../check-note';
 import type { StatedValue, Timepoint } from '../analysis/model';
 import { displayUnit } from '../analysis/read-value';
 import { PER_KG_PBW } from '../analysis/per-kg-volume';
-import { deviceWithoutPressure, nivPressureBesideLevel, supportOfDevice } from '../analysis/noninvasive-support';
+import { deviceWithoutPressure, nivPressureBesideLevel, noninvasiveSupport, supportOfDevice, SUPPORT_NAMES, type NoninvasiveSupport } from '../analysis/noninvasive-support';
 import { withheldText, type DerivedValue, type NotApplicable, type TimepointDerivation } from '../derive/model';
 import { derivedDef, withheldByReason } from '../derive/registry';
 import { shortAsName } from '../derive/context';
 import { fieldFor, fieldsInSection, loincFor, type FieldDef } from '../fields/registry';
-import { measuredByMode } from '../fields/modes';
+import { FAMILY_MEANING, measuredByMode, modeFamily, SIMV_UNTARGETED } from '../fields/modes';
 import { sectionById, type SectionId } from '../fields/sections';
 import { dayAndClock, describeInput, formatAlternative, formatStated, readUnitName, statedInKpa } from '../present';
 import type { SectionLine, TimepointLine } from '../syntax/tree';
@@ -92,11 +92,13 @@ function fieldMarkdown(result: NoteResult, node: SectionLine, hit: ItemHit): str
   const head = `**${escapeMarkdown(field.label)}** — ${keyWords} on this ${code(node.section)} line`;
   const parts: (string | null)[] = [head, describedMarkdown(field.description)];
   if (stated) {
-    parts.push(valueText(stated, showsKpaOnLine(result, stated.line)), unitText(result, stated, field), originText(result, stated), usableText(stated, field), notGivenText(result, stated), feedsText(result, stated));
+    parts.push(valueText(stated, showsKpaOnLine(result, stated.line)), modeFamilyText(stated), unitText(result, stated, field), originText(result, stated), usableText(stated, field), notGivenText(result, stated), feedsText(result, stated));
   } else if (hit.item.value) {
     parts.push(`${code(hit.item.value.text)} could not be read as ${escapeMarkdown(field.label)}.`);
   }
-  parts.push(carryText(field, node.section, stated, stated ? timepointOfLine(result, stated.line)?.values.wordOf('mode') ?? null : null));
+  const values = stated ? timepointOfLine(result, stated.line)?.values : undefined;
+  const mode = values?.wordOf('mode') ?? null;
+  parts.push(carryText(field, node.section, stated, mode, mode === null && values !== undefined ? noninvasiveSupport(values.wordOf('device'), values) : null));
   parts.push(loincText(field, node.section, hit.item.keyName));
   parts.push(cautionLine());
   return paragraphs(parts);
@@ -281,19 +283,30 @@ function feedsText(result: NoteResult, s: StatedValue): string | null {
   return parts.length > 0 ? parts.join('\n\n') : null;
 }
 
-function carryText(field: FieldDef, section: SectionId, stated: StatedValue | null, mode: string | null): string {
+/**
+ * The family of a ventilator mode (fields/modes.ts) and what it sets and measures, which decides
+ * whether the other values of its vent lines are settings or measurements; null for another field.
+ */
+function modeFamilyText(stated: StatedValue): string | null {
+  if (stated.fieldId !== 'mode' || stated.word === null) return null;
+  const family = modeFamily(stated.word);
+  if (family === null) return 'Family: none that Pneumark knows: each value on its vent lines is a setting or a reading as its field says (a tidal volume a setting).';
+  const untargeted = stated.word.toUpperCase() === SIMV_UNTARGETED ? ' Plain SIMV is read as volume-targeted; write `SIMV-PC` for SIMV run pressure-targeted, `SIMV-VC` to say it is volume-targeted.' : '';
+  return `Family: **${family}** — ${FAMILY_MEANING[family]}.${untargeted}`;
+}
+
+function carryText(field: FieldDef, section: SectionId, stated: StatedValue | null, mode: string | null, support: NoninvasiveSupport | null): string {
   const kind = sectionById(section).kind;
-  // A value the mode in force measures rather than sets (a tidal volume under PS: fields/modes.ts).
-  if (kind === 'setting' && stated?.hereOnly === true && mode !== null && measuredByMode(field, mode)) {
-    return `Carries forward: no — under ${escapeMarkdown(mode)} the ${escapeMarkdown(field.label.toLowerCase())} is measured, not set: that mode does not set it, so it is in force at this timepoint only; the settings on this line carry forward.`;
+  // A value the breaths in force measure rather than set (fields/modes.ts: a tidal volume under PS,
+  // or with no mode on a vent line of readings under NIV or CPAP, the volume the device measured).
+  if (kind === 'setting' && stated?.hereOnly === true && measuredByMode(field, mode, support)) {
+    const label = escapeMarkdown(field.label.toLowerCase());
+    if (mode !== null) return `Carries forward: no — under ${escapeMarkdown(mode)} the ${label} is measured, not set: that mode does not set it, so it is in force at this timepoint only; the settings on this line carry forward.`;
+    return `Carries forward: no — under ${SUPPORT_NAMES[support!]} the ${label} is measured, not set: the device measured it at this timepoint, and it is in force there only; a \`vent\` line of readings does not end the support in force.`;
   }
   // The mean airway pressure an oscillator is set to.
   if (kind === 'setting' && field.reading && stated !== null && !stated.hereOnly) {
     return 'Carries forward: yes, in HFOV the mean airway pressure is set: until restated, a change of mode or an `oxygen` line.';
-  }
-  // A tidal volume on a vent line of readings under NIV or CPAP: the volume the device measured.
-  if (kind === 'setting' && !field.reading && stated?.hereOnly === true) {
-    return 'Carries forward: no — on a `vent` line of readings under NIV or CPAP, it is the volume the device measured at this timepoint; the support in force is not ended.';
   }
   if (kind === 'header') return section === 'place' ? 'Carries forward: yes, until a later `place` line replaces the place.' : 'Carries forward: yes, for the whole note until restated.';
   if (kind === 'setting' && !field.reading) {
