@@ -420,6 +420,14 @@ const SPEC_LINES: Readonly<Record<string, readonly string[] | { readonly on: str
   'oxygen nasal 28 %': ['PN203'],
   'spo2 0.94': ['PN302'],
   'po2 9.1': ['PN204'],
+  // A later oxygen line without a device: it updates the therapy in force (or replaces it), with no finding.
+  'oxygen hfnc 50 L/min, fio2 0.6': [],
+  'oxygen fio2 0.4': { on: '@ 08:00\noxygen hfnc 50 L/min, fio2 0.6\n@ 10:00\noxygen fio2 0.4', codes: [] },
+  'oxygen niv ipap 14, epap 6': [],
+  'oxygen ipap 16': { on: '@ 08:00\noxygen niv ipap 14, epap 6\n@ 10:00\noxygen ipap 16', codes: [] },
+  'oxygen fio2 0.3': { on: '@ 08:00\noxygen cannula 2\n@ 10:00\noxygen fio2 0.3', codes: [] },
+  'oxygen ipap 14, epap 6': { on: '@ 08:00\noxygen cannula 2\n@ 10:00\noxygen ipap 14, epap 6', codes: [] },
+  'oxygen canula, flow 3': ['PN201'],
 };
 /** Quoted shapes rather than lines: placeholders, or a section word named in a sentence. */
 const SPEC_TEMPLATES = new Set(['@ day N HH:MM', '@ HH:MM', '@ day N', 'units gas']);

@@ -3,7 +3,9 @@
  * for every part of Pneumark that asks: the timeline (under NIV or CPAP, a tidal volume on a vent
  * line of readings is the exhaled volume the device measured, not a ventilator setting), mechanical
  * power (not worked out under either, and says which) and the FHIR export (no code of a set tidal
- * volume on a measured one).
+ * volume on a measured one). And which settings each oxygen device takes (`deviceSets`): what a
+ * later oxygen line that names no device may restate of the device in force (the timeline), and
+ * the keys completion leaves out beside a device.
  */
 import type { StatedValue, ValuesInForce } from './model';
 
@@ -52,6 +54,26 @@ export const SUPPORT_PRESSURE_FIELDS: readonly string[] = [...SUPPORT_PRESSURES.
 /** The support a pressure field belongs to (`niv` for IPAP and EPAP, `cpap` for the level); null for another field. */
 export function supportOfPressure(fieldId: string): NoninvasiveSupport | null {
   return fieldId === 'cpap_level' ? 'cpap' : fieldId === 'ipap' || fieldId === 'epap' ? 'niv' : null;
+}
+
+/**
+ * Whether `fieldId` is a setting of the oxygen device `device` (a canonical device word): what the
+ * device is set to, and what an oxygen line that names no device may restate of it at a later
+ * timepoint (the timeline's `updatesTherapy`: `oxygen flow 4` after `oxygen cannula 2` is the
+ * cannula at 4 L/min). The one table of it:
+ * - a flow (`o2_flow`) for every device but room air, which takes no oxygen;
+ * - an FiO2 for the devices that set one: a Venturi mask (its entrainment valve gives a fixed
+ *   fraction, which is why a number after `venturi` may be read as it), high flow (the blender of
+ *   its air and oxygen) and NIV and CPAP (their oxygen blended or bled in). A cannula, a simple or a
+ *   reservoir mask is set by its flow only: the FiO2 the patient breathes follows the flow and the
+ *   breathing, so an FiO2 written beside one is a value stated, not what the device is set to
+ *   (common practice, no source);
+ * - the pressures of its support (`givesPressure`): an IPAP and an EPAP for NIV, a level for CPAP.
+ */
+export function deviceSets(device: string, fieldId: string): boolean {
+  if (fieldId === 'o2_flow') return device !== 'room air';
+  if (fieldId === 'fio2') return device === 'venturi' || device === 'hfnc' || supportOfDevice(device) !== null;
+  return supportOfPressure(fieldId) !== null && givesPressure(device, fieldId);
 }
 
 /** Nothing held: asked of the rule where only the device decides. */

@@ -6,7 +6,9 @@
  * Carry rules: patient and place values carry until restated (a `place` line replaces the
  * whole place); an `oxygen` line replaces the previous oxygen line and ends ventilation (but for a
  * line with a `fio2` and no device beside one whose device gives the FiO2, `venturi 28`: the two
- * hold as one, see `pairsAcrossLines`);
+ * hold as one, see `pairsAcrossLines`; and for a line at a later timepoint that names no device
+ * and writes only settings of the device in force, `oxygen flow 4` after `oxygen cannula 2`, which
+ * updates that therapy: the device and the settings it does not restate carry, see `updatedDevice`);
  * a `vent` line that states a setting ends oxygen-line therapy (one of readings only ends nothing;
  * under NIV or CPAP its tidal volume is the measured one, of its timepoint) and updates the ventilator settings it restates,
  * keeping the rest (a change of mode keeps only PEEP and FiO2, a change to or from HFOV only
@@ -46,7 +48,7 @@ import { OSCILLATION_MODE } from '../physiology/mechanics';
 import { familyInForce, isMeasuredIn, isMeasuredUnder, modeFamily, type ModeFamily } from '../fields/modes';
 import { PER_KG_PBW, pbwFrom, VT_PER_KG_HARD_MAX } from './per-kg-volume';
 import { barometricFromAltitude } from './ambient';
-import { noninvasiveSupport } from './noninvasive-support';
+import { deviceSets, noninvasiveSupport } from './noninvasive-support';
 import { moveLineNames, namesLine, shiftedLine, type InputValue, type LineShift, type Origin, type StatedValue, type Timepoint, type TimepointTime, type ValuesInForce } from './model';
 import type { ReadIssue } from './read-issues';
 import { readItem, type ReadContext } from './read-value';
@@ -541,7 +543,7 @@ function processBlock(lines: readonly LineNode[], start: number, end: number, in
       // The FiO2 of a device on one oxygen line and a `fio2` on another: the two lines state one therapy.
       mutable.oxygen = holdPaired(mutable.oxygen, into, from, to, index, tpLabel!, tpTime);
       mutable.vent = EMPTY;
-    } else apply(node.section, into, from, to, inHeader ? -1 : index, inHeader ? 'header' : tpLabel!, inHeader ? START_TIME : tpTime, mutable);
+    } else apply(node.section, into, from, to, inHeader ? -1 : index, inHeader ? 'header' : tpLabel!, inHeader ? START_TIME : tpTime, mutable, node.items);
   }
   SEEN_IN_HEADER.reset();
   SEEN_AT_TIMEPOINT.reset();
@@ -935,13 +937,19 @@ function copyInto(this: Map<string, Held>, held: Held, id: string): void {
   this.set(id, held);
 }
 
-/** Holds the settings among `stated[from, to)`, the values of one `section` line. */
-function apply(section: SectionId, stated: (StatedValue | undefined)[], from: number, to: number, tp: number, label: string, time: TimepointTime, state: MutableState): void {
+/** Holds the settings among `stated[from, to)`, the values of one `section` line (its `items`). */
+function apply(section: SectionId, stated: (StatedValue | undefined)[], from: number, to: number, tp: number, label: string, time: TimepointTime, state: MutableState, items: readonly ItemNode[]): void {
   switch (section) {
     case 'patient': state.patient = hold(state.patient, stated, from, to, tp, label, time); break;
     case 'place': if (to > from) state.place = hold(EMPTY, stated, from, to, tp, label, time); break;
     case 'units': { const g = firstOf(stated, from, to, 'gas_unit'); if (g?.word) state.gasUnit = new HeldValue(g, tp, label, time); break; }
-    case 'oxygen': state.oxygen = hold(EMPTY, stated, from, to, tp, label, time); state.vent = EMPTY; break;
+    case 'oxygen': {
+      // A later line that restates settings of the device in force updates it; any other replaces it.
+      const device = updatedDevice(state.oxygen, stated, from, to, tp, items);
+      state.oxygen = device === null ? hold(EMPTY, stated, from, to, tp, label, time) : holdUpdate(state.oxygen, device, stated, from, to, tp, label, time);
+      state.vent = EMPTY;
+      break;
+    }
     case 'vent': {
       perKgVolumes(stated, from, to, state.patient);
       const mode = firstOf(stated, from, to, 'mode');
@@ -979,6 +987,59 @@ function apply(section: SectionId, stated: (StatedValue | undefined)[], from: nu
     }
     default: break;
   }
+}
+
+/**
+ * The device of the oxygen line in force (`oxygen`, held) that the oxygen line `stated[from, to)`
+ * (its `items`) at timepoint `tp` updates rather than replaces; null where it replaces it. It
+ * updates it where the device was named at an earlier timepoint (lines of one timepoint pair or
+ * replace as they always did: `pairsAcrossLines`), is a device read (a word known), and the line
+ * names no device, reads every item it writes (a word it does not read may be a device misspelt),
+ * and writes at least one value, each a setting of that device (`deviceSets`: `oxygen flow 4` after
+ * `oxygen cannula 2`, `oxygen fio2 0.4` after high flow, `oxygen ipap 16` after NIV). An FiO2
+ * after a cannula or a simple or reservoir mask is no setting of theirs, so such a line replaces,
+ * as does a pressure of a support the device does not give (`oxygen ipap 14, epap 6` after a
+ * cannula: NIV by its pressures), any line after room air (it takes no setting), and any line
+ * where no device is in force (under ventilation, after NIV by its pressures alone, or nothing).
+ */
+function updatedDevice(oxygen: HeldMap, stated: readonly (StatedValue | undefined)[], from: number, to: number, tp: number, items: readonly ItemNode[]): string | null {
+  if (to === from || oxygen.size === 0) return null;
+  const held = oxygen.get('device');
+  if (held === undefined || held.timepoint === tp || !held.stated.usable) return null;
+  const device = held.stated.word;
+  if (device === null) return null;
+  for (let k = 0; k < items.length; k++) {
+    const item = items[k]!;
+    if (item.implied === 'device' || item.field === null) return null;
+  }
+  for (let k = from; k < to; k++) if (!deviceSets(device, stated[k]!.fieldId)) return null;
+  return device;
+}
+
+/**
+ * The oxygen held after a line that updates the therapy in force (`updatedDevice`): the device and
+ * the settings of it held before, each as it was held (its origin the line that stated it), then
+ * `stated[from, to)`, which replace theirs. What the line before held beside the device that is no
+ * setting of it (an FiO2 beside a cannula, a pressure beside a mask, PN318) does not carry: it was
+ * said of the therapy as it was then.
+ */
+function holdUpdate(base: HeldMap, device: string, stated: readonly (StatedValue | undefined)[], from: number, to: number, tp: number, label: string, time: TimepointTime): HeldMap {
+  const next = new Map<string, Held>();
+  base.forEach(copySettingsOf, new SettingsOf(next, device));
+  for (let k = from; k < to; k++) {
+    const s = stated[k]!;
+    if (!s.hereOnly) next.set(s.fieldId, new HeldValue(s, tp, label, time));
+  }
+  return next;
+}
+
+/** Where `copySettingsOf` copies to, and the device whose settings it copies. */
+class SettingsOf {
+  constructor(readonly map: Map<string, Held>, readonly device: string) {}
+}
+
+function copySettingsOf(this: SettingsOf, held: Held, id: string): void {
+  if (id === 'device' || deviceSets(this.device, id)) this.map.set(id, held);
 }
 
 /**

@@ -43,9 +43,30 @@ function oldSettings(tp: Timepoint, limitMinutes: number): OldSetting[] {
     const input = tp.values.get(id);
     if (!input || input.origin.kind !== 'carried') continue;
     const minutes = carriedMinutes(input.origin);
-    if (minutes !== null && minutes > limitMinutes) out.push({ id, input, origin: input.origin, minutes });
+    if (minutes !== null && minutes > limitMinutes && !(id === 'device' && deviceRestated(tp, limitMinutes))) out.push({ id, input, origin: input.origin, minutes });
   }
   return out;
+}
+
+/** The settings an oxygen line that names no device may restate of the device in force (`deviceSets`). */
+const DEVICE_SETTINGS: readonly string[] = ['o2_flow', 'fio2', 'ipap', 'epap', 'cpap_level'];
+
+/**
+ * Whether the oxygen device carried here was written about within the limit: an oxygen line that
+ * names no device restated a setting of it here, or at a timepoint carried from within the limit
+ * (the timeline's update of the therapy in force). Such a line is read as that device's settings,
+ * so it says the device was still in use when it was written: the device is then no older than
+ * the line, and only the settings it did not restate are as old as their own lines.
+ */
+function deviceRestated(tp: Timepoint, limitMinutes: number): boolean {
+  for (const id of DEVICE_SETTINGS) {
+    const input = tp.values.heldSetting(id);
+    if (!input || input.stated.section !== 'oxygen') continue;
+    if (input.origin.kind === 'here') return true;
+    const minutes = input.origin.kind === 'carried' ? carriedMinutes(input.origin) : null;
+    if (minutes !== null && minutes <= limitMinutes) return true;
+  }
+  return false;
 }
 
 /**

@@ -28,7 +28,7 @@ import { parseLine } from '../syntax/parser';
 import type { ItemNode, LineNode } from '../syntax/tree';
 import type { Position, Range } from '../types';
 import { ITEM_COLUMN } from './format';
-import { supportOfDevice, SUPPORT_PRESSURE_FIELDS, SUPPORT_PRESSURES, type NoninvasiveSupport } from '../analysis/noninvasive-support';
+import { deviceSets, supportOfDevice, SUPPORT_PRESSURE_FIELDS, SUPPORT_PRESSURES, type NoninvasiveSupport } from '../analysis/noninvasive-support';
 import { NONE } from '../util/lists';
 import { isValidPosition, itemAt, lineAt, lineRange, timepointOfLine } from './locate';
 import { OSCILLATION_MODE } from '../physiology/mechanics';
@@ -316,17 +316,18 @@ function shorthandSnippet(section: SectionId, replace: Range): CompletionInfo {
   };
 }
 
+/** The oxygen-line fields some devices do not take (`deviceSets`): the flow, and the pressures of the supports. */
+const SETTINGS_BY_DEVICE: readonly string[] = ['o2_flow', ...SUPPORT_PRESSURE_FIELDS];
+
 /**
- * Oxygen-line fields that do not go with a device: the pressures of another support than the
- * device's (none for a device that gives no set airway pressure: PN318, by the one rule of
- * `noninvasiveSupport`), and for room air the flow too.
+ * Oxygen-line fields that do not go with a device, by the one table of `deviceSets`: the pressures
+ * of another support than the device's (none for a device that gives no set airway pressure: PN318,
+ * by the one rule of `noninvasiveSupport`), and for room air the flow too. An FiO2 is offered beside
+ * any device (one written beside a cannula is a value stated, not a setting of it).
  */
 function notForDevice(device: string | null): readonly string[] {
   if (device === null) return [];
-  const support = supportOfDevice(device);
-  const own = support === null ? NONE : SUPPORT_PRESSURES[support];
-  const others = SUPPORT_PRESSURE_FIELDS.filter((id) => !own.includes(id));
-  return device === 'room air' ? ['o2_flow', ...others] : others;
+  return SETTINGS_BY_DEVICE.filter((id) => !deviceSets(device, id));
 }
 
 /**
