@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { chunkLine, LEXED, moreWordsOf, releaseWords, scanNumber, SCANNED, wordsOf, type Vocabulary } from '../../server/src/core/syntax/lexer';
+import { chunkLine, LEXED, moreWordsOf, releaseWords, scanNumber, scanWord, SCANNED, wordsIn, wordsOf, type Vocabulary } from '../../server/src/core/syntax/lexer';
 
 describe('lexer', () => {
   it('cuts words at blanks and separating commas, keeping a decimal comma inside its word', () => {
@@ -54,13 +54,13 @@ describe('lexer', () => {
     const two = wordsOf(line, 0, undefined, 2);
     expect(two.map((w) => w.text)).toEqual(['vitals', 'hr']);
     expect(LEXED.doubledComma).toBe(false);
-    expect(moreWordsOf(line, undefined, 4).map((w) => w.text)).toEqual(['vitals', 'hr', '80', 'rr']);
-    const rest = moreWordsOf(line).map((w) => [w.text, w.start, w.end, w.afterComma]);
+    expect(moreWordsOf(undefined, 4).map((w) => w.text)).toEqual(['vitals', 'hr', '80', 'rr']);
+    const rest = moreWordsOf().map((w) => [w.text, w.start, w.end, w.afterComma]);
     expect(rest).toEqual(whole);
     expect(LEXED.doubledComma).toBe(doubled);
     expect(doubled).toBe(true);
     // Nothing left to read: the same list.
-    expect(moreWordsOf(line).length).toBe(whole.length);
+    expect(moreWordsOf().length).toBe(whole.length);
     // A line of as many words as `max` is read whole.
     expect(wordsOf('a b', 0, undefined, 2).map((w) => w.text)).toEqual(['a', 'b']);
     expect(LEXED.stoppedAt).toBe(-1);
@@ -71,7 +71,7 @@ describe('lexer', () => {
     const long = wordsOf('note a long line of prose: pneumothoraces').slice();
     const short = wordsOf('vitals hr 80').slice();
     releaseWords();
-    expect([...long, ...short].every((w) => w.text === '' && w.body === '')).toBe(true);
+    expect([...long, ...short].every((w) => w.text === '' && w.source === '')).toBe(true);
   });
 
   it('gives a word of the vocabulary its kept text and its index, and no other word either', () => {
@@ -85,6 +85,29 @@ describe('lexer', () => {
     expect(read[1]!.known).toBe(-1);
     releaseWords();
     expect(read[0]!.known).toBe(-1);
+  });
+
+  it('reads a line inside a longer text by offsets as it reads the line alone, its places counted from the line', () => {
+    const words = ['hr', 'vitals'];
+    const vocabulary: Vocabulary = { words, indexAt: (body, start, end) => words.indexOf(body.slice(start, end)) };
+    const seen = (read: ReturnType<typeof wordsOf>) => read.map((w) => {
+      const scanned = scanWord(w);
+      return [w.text, w.start, w.end, w.afterComma, w.known, scanned, scanned > 0 ? SCANNED.value : null];
+    });
+    // Each line body in its note: before a comment, before `\r\n`, `\r` or `\n`, and at the end of the note.
+    const note = 'x\nvitals hr 7,5 rr -#,5\r\n ,hr 80,, 7 ,9\r-,5 1.\n,5 hr 1234567890123456789';
+    for (const [base, length] of [[2, 18], [25, 14], [40, 6], [47, 25]] as const) {
+      const line = note.slice(base, base + length);
+      const alone = seen(wordsOf(line, 0, vocabulary));
+      const doubled = LEXED.doubledComma;
+      expect(seen(wordsIn(note, base, length, vocabulary)), line).toEqual(alone);
+      expect(LEXED.doubledComma).toBe(doubled);
+      // Stopped after two words, it reads on in the same line.
+      expect(wordsIn(note, base, length, vocabulary, 2).length).toBe(Math.min(2, alone.length));
+      expect(seen(moreWordsOf(vocabulary)), line).toEqual(alone);
+      expect(LEXED.doubledComma).toBe(doubled);
+    }
+    releaseWords();
   });
 
   it('reads a number without an object per number', () => {

@@ -4,7 +4,7 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { checkNote } from '../../server/src/core/check-note';
 import { leadingNumber } from '../../server/src/core/syntax/lexer';
-import { parseNote, splitLines } from '../../server/src/core/syntax/parser';
+import { parseLine, parseNote, splitLines } from '../../server/src/core/syntax/parser';
 import type { Range } from '../../server/src/core/types';
 import type { LineNode, ValueNode } from '../../server/src/core/syntax/tree';
 import { anyText, nearlyValidNote } from '../helpers/arbitraries';
@@ -124,6 +124,26 @@ function snapshotOf(node: LineNode): unknown {
     case 'section': return [...base, node.section, tok(node.sectionToken), tok(node.prose), node.items.map((i) => [i.keyName, i.implied, tok(i.key), value(i.value), tok(i.unit), span(i.span), i.field?.id ?? null])];
   }
 }
+
+describe('parser: lines read in their note', () => {
+  // parseNote reads each line's words by offsets in the note; parseLine reads a line of its own.
+  const sameAsAlone = (text: string) => {
+    const alone = splitLines(text).lines.map((l, i) => snapshotOf(parseLine(l.text, i)));
+    expect(parseNote(text).lines.map(snapshotOf)).toEqual(alone);
+  };
+
+  it('reads a line of a note as it reads the line alone, its words, numbers and ends next to comments and line ends', () => {
+    for (const text of [
+      'vitals hr 80 # 7,5\nabg 7.28/56/71/26 kPa#x\r\nvitals bp 120/80(93)\rnote ok. 12\n@ day 2 08:00 label\n',
+      'vitals temp 38,4\n,5 hr 80\r\n-,5\nvent peep 5, vt 400 mL.\n\noxygen hfnc 40 L/min 60 %#c\nvitals hr 1234567890123456789',
+      'vitals hr -#\n5\nabg 7.3 / 40 /\n90\nvitals bp 120/\n80',
+    ]) sameAsAlone(text);
+  });
+
+  it(`reads every line of a generated note as it reads the line alone (${PROPERTY_RUNS} generated notes)`, () => {
+    fc.assert(fc.property(fc.oneof(anyText, nearlyValidNote), sameAsAlone), { numRuns: PROPERTY_RUNS });
+  });
+});
 
 describe('parser: trees stay as parsed', () => {
   it(`keeps a tree unchanged while other notes are parsed after it (the lexer reuses its words) (${PROPERTY_RUNS} generated pairs)`, () => {

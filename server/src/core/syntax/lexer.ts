@@ -50,10 +50,12 @@ export function isDigit(code: number): boolean {
  * per word, and the tree keeps few), so a word holds only until the next line is cut: what the
  * tree keeps is copied out of it. `span` gives a new span at each read, never the word itself.
  *
- * A word's text is `body.slice(start, end)`, cut out when first read (a word of the format is
- * given its kept string instead): most numbers are read in place (`scanWord`) and the words of
- * prose are never read, so their texts would be copies made only to be dropped. Whoever changes
- * a word keeps that so (a full stop left out: `text` and `end` together).
+ * A word is read in place in the text its line is in (`source`, where the line starts at `base`:
+ * the whole note as `parseNote` reads it, so no line is cut out to be read, see `wordsIn`); its
+ * `start` and `end` are places in its line. Its text is cut out when first read (a word of the
+ * format is given its kept string instead): most numbers are read in place (`scanWord`) and the
+ * words of prose are never read, so their texts would be copies made only to be dropped. Whoever
+ * changes a word keeps that so (a full stop left out: `text` and `end` together).
  */
 export class Word {
   /** The text once known (or given), else null: see `text`. */
@@ -65,8 +67,10 @@ export class Word {
     public end = 0,
     /** A comma separated this word from the previous one. */
     public afterComma = false,
-    /** The line body the word is in. */
-    public body = '',
+    /** The text the word's line is in (the line itself, or its whole note). */
+    public source = '',
+    /** Where the word's line starts in `source`. */
+    public base = 0,
     /**
      * Which word of the vocabulary given to `wordsOf` this word is (its index in `words`), or -1:
      * what the caller knows of the words of its format is looked up by it, not by the text.
@@ -77,7 +81,7 @@ export class Word {
   }
 
   get text(): string {
-    return (this.cut ??= this.body.slice(this.start, this.end));
+    return (this.cut ??= this.source.slice(this.base + this.start, this.base + this.end));
   }
 
   /** The word made another text: no longer a word of the vocabulary (a caller that knows it is sets `known` after). */
@@ -91,12 +95,13 @@ export class Word {
   }
 
   /** The word made another: the pooled words are reused from line to line (see `wordsOf`). */
-  reuse(text: string | null, start: number, end: number, afterComma: boolean, body: string, known: number): void {
+  reuse(text: string | null, start: number, end: number, afterComma: boolean, source: string, base: number, known: number): void {
     this.cut = text;
     this.start = start;
     this.end = end;
     this.afterComma = afterComma;
-    this.body = body;
+    this.source = source;
+    this.base = base;
     this.known = known;
   }
 }
@@ -108,7 +113,8 @@ export class Word {
  * text is scanned instead.
  */
 export function scanWord(word: Word): number {
-  const length = scanNumber(word.body, word.start);
+  // Past the line's end in its note comes a line end or a comment's `#`, which end a number as the end of the text does.
+  const length = scanNumber(word.source, word.base + word.start);
   return length <= word.end - word.start ? length : scanNumber(word.text);
 }
 
@@ -137,6 +143,10 @@ const POOL_LIMIT = 4096;
 const LIST: Word[] = [];
 /** How many words `wordsOf` handed out last. */
 let handedCount = 0;
+/** The line `wordsIn` read last, for `moreWordsOf` to read on in: its text, where it starts in it and where its body ends. */
+let lineSource = '';
+let lineBase = 0;
+let lineLimit = 0;
 /** The most words handed out for one line since `releaseWords` last ran: those it lets go of. */
 let heldCount = 0;
 
@@ -159,10 +169,11 @@ export function releaseWords(): void {
   // By the most handed out, not the list's length: a caller may have shortened the list (a full stop left out).
   for (let k = 0; k < heldCount; k++) {
     const word = k < POOL_LIMIT ? POOL[k] : LIST[k];
-    if (word) word.reuse('', 0, 0, false, '', -1);
+    if (word) word.reuse('', 0, 0, false, '', 0, -1);
   }
   handedCount = 0;
   heldCount = 0;
+  lineSource = '';
 }
 
 /**
@@ -177,36 +188,54 @@ export interface Vocabulary {
 }
 
 /**
- * The words of a line body, in a reused list of reused words (see `Word`, `LIST`): valid until the
- * next call. A word of `vocabulary` is given its kept text and index (see `Vocabulary`); another
- * word's text is cut out when read (see `Word`).
+ * The words of a line body from `from`, in a reused list of reused words (see `Word`, `LIST`):
+ * valid until the next call. A word of `vocabulary` is given its kept text and index (see
+ * `Vocabulary`); another word's text is cut out when read (see `Word`).
  *
  * Given `max`, it stops after that many words (what the parser needs of a line of prose: a note
  * line's words after its first two, a timepoint's label, are not read as words); `moreWordsOf`
  * reads on. `LEXED.doubledComma` then says what the words read so far showed.
  */
 export function wordsOf(body: string, from = 0, vocabulary?: Vocabulary, max = Infinity): Word[] {
-  LEXED.doubledComma = false;
-  handedCount = 0;
-  return lexFrom(body, from, vocabulary, max);
+  return wordsIn(body, 0, body.length, vocabulary, max, from);
 }
 
 /**
- * The words of the line `wordsOf` last read, read on up to `max` words in all, from where it stopped
- * (the same list, with the words after those it had). Valid until the next call of either.
+ * `wordsOf` of the line body of `length` characters at `base` in `source`, read there: the words'
+ * places are counted from `base`, as if the body had been cut out, but it is not. `parseNote` reads
+ * each line so, in its note: a line cut out is a string of its own to make, and V8 reads the
+ * characters of a slice through its parent, more slowly than those of a whole flat string.
  */
-export function moreWordsOf(body: string, vocabulary?: Vocabulary, max = Infinity): Word[] {
-  if (LEXED.stoppedAt < 0 || handedCount >= max) return handedCount === 0 ? [] : LIST;
-  return lexFrom(body, LEXED.stoppedAt, vocabulary, max);
+export function wordsIn(source: string, base: number, length: number, vocabulary?: Vocabulary, max = Infinity, from = 0): Word[] {
+  LEXED.doubledComma = false;
+  handedCount = 0;
+  lineSource = source;
+  lineBase = base;
+  lineLimit = base + length;
+  return lexFrom(base + from, vocabulary, max);
 }
 
-/** Reads words of `body` from `from` after the `handedCount` words already in LIST, until `max` in all. */
-function lexFrom(body: string, from: number, vocabulary: Vocabulary | undefined, max: number): Word[] {
+/**
+ * The words of the line `wordsOf` or `wordsIn` last read, read on up to `max` words in all, from
+ * where it stopped (the same list, with the words after those it had). Valid until the next call.
+ */
+export function moreWordsOf(vocabulary?: Vocabulary, max = Infinity): Word[] {
+  if (LEXED.stoppedAt < 0 || handedCount >= max) return handedCount === 0 ? [] : LIST;
+  return lexFrom(lineBase + LEXED.stoppedAt, vocabulary, max);
+}
+
+/**
+ * Reads words of the line last given (`lineSource` up to `lineLimit`) from `from` (a place in
+ * `lineSource`) after the `handedCount` words already in LIST, until `max` in all.
+ */
+function lexFrom(from: number, vocabulary: Vocabulary | undefined, max: number): Word[] {
   const words = LIST;
+  const body = lineSource;
+  const base = lineBase;
+  const n = lineLimit;
   let count = handedCount;
   let i = from;
   let sawComma = false;
-  const n = body.length;
   LEXED.stoppedAt = -1;
   while (i < n && count < max) {
     const c = body.charCodeAt(i);
@@ -236,9 +265,9 @@ function lexFrom(body: string, from: number, vocabulary: Vocabulary | undefined,
     let word: Word;
     if (count < POOL_LIMIT) {
       word = POOL[count] ?? (POOL[count] = new Word());
-      word.reuse(text, start, i, sawComma, body, known);
+      word.reuse(text, start - base, i - base, sawComma, body, base, known);
     } else {
-      word = new Word(text, start, i, sawComma, body, known);
+      word = new Word(text, start - base, i - base, sawComma, body, base, known);
     }
     if (count < words.length) words[count] = word;
     else words.push(word);
@@ -246,7 +275,7 @@ function lexFrom(body: string, from: number, vocabulary: Vocabulary | undefined,
     sawComma = false;
   }
   // Stopped at `max` with more of the line to read: `moreWordsOf` reads on from here.
-  if (i < n) LEXED.stoppedAt = i;
+  if (i < n) LEXED.stoppedAt = i - base;
   handedCount = count;
   if (count > heldCount) heldCount = count;
   if (count === 0) return [];

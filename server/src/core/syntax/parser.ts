@@ -9,7 +9,7 @@ import { SECTIONS, sectionByName, type SectionDef, type SectionId } from '../fie
 import { isKnownUnitSpelling, unitsForSpelling, UNITS } from '../fields/units';
 import { unitsWithin } from '../analysis/bounds';
 import { closest } from '../util/suggest';
-import { Chunk, isBlank, isDigit, leadingNumber, LEXED, lowerCase, moreWordsOf, releaseWords, scanNumber, scanWord, SCANNED, wordsOf, Word, type Vocabulary } from './lexer';
+import { Chunk, isBlank, isDigit, leadingNumber, LEXED, lowerCase, moreWordsOf, releaseWords, scanNumber, scanWord, SCANNED, wordsIn, Word, type Vocabulary } from './lexer';
 import type {
   BlankLine,
   ItemNode,
@@ -81,15 +81,16 @@ export function splitLines(text: string): { lines: LineSlice[]; eol: NoteTree['e
 }
 
 /**
- * Parses a note; each line is parsed as it is cut (no list of pieces is kept). The list of lines is
- * made at its length once the lines are counted: grown by push, a list as long as the note is
- * copied a dozen times on the way, and keeps room to spare.
+ * Parses a note; each line is parsed as it is cut (no list of pieces is kept), its words read in
+ * the note itself (`wordsIn`), not in the line's own text. The list of lines is made at its length
+ * once the lines are counted: grown by push, a list as long as the note is copied a dozen times on
+ * the way, and keeps room to spare.
  */
 export function parseNote(text: string): NoteTree {
   const nodes = new Array<LineNode>(countLines(text));
   let count = 0;
   try {
-    const eol = cutLines(text, (line) => { nodes[count] = readLine(line, count); count++; });
+    const eol = cutLines(text, (line, offset) => { nodes[count] = readLine(line, count, text, offset); count++; });
     return { lines: nodes, eol };
   } finally {
     // Once for the note, not after every line (see `releaseWords`).
@@ -220,10 +221,13 @@ export function parseLine(text: string, line: number): LineNode {
   }
 }
 
-/** A line's node, the lexer's words not let go of (see `releaseWords`). */
-function readLine(text: string, line: number): LineNode {
+/**
+ * A line's node, the lexer's words not let go of (see `releaseWords`). The line's words are read
+ * where the line starts in `source` (at `base`: see `wordsIn`), its whole note or the line itself.
+ */
+function readLine(text: string, line: number, source = text, base = 0): LineNode {
   try {
-    return parseLineUnsafe(text, line);
+    return parseLineUnsafe(text, line, source, base);
   } catch {
     // Defensive: the parser is written not to throw, but a line must never take the note down.
     return new BlankNode(line, text, null, [{ check: 'stray-text', span: { start: 0, end: text.length }, message: 'This line could not be read.', fixes: NONE }]);
@@ -273,15 +277,15 @@ export function movedLine(node: LineNode, line: number): LineNode {
   }
 }
 
-function parseLineUnsafe(text: string, line: number): LineNode {
+function parseLineUnsafe(text: string, line: number, source = text, base = 0): LineNode {
   const hash = text.indexOf('#');
   const bodyEnd = hash >= 0 ? hash : text.length;
   const comment: Token | null = hash >= 0 ? token(text.slice(hash), hash, text.length) : null;
   const body = hash >= 0 ? text.slice(0, bodyEnd) : text;
   // A timepoint line reads the words of its time and the first of its label; another line first
   // reads two words, which tell its kind, and a note line no more (its prose is not read as words).
-  const timepoint = firstWordChar(body) === 0x40 /* @ */;
-  let chunks = wordsOf(body, 0, FORMAT_WORDS, timepoint ? TIMEPOINT_WORDS : 2);
+  const timepoint = firstWordChar(source, base, base + bodyEnd) === 0x40 /* @ */;
+  let chunks = wordsIn(source, base, bodyEnd, FORMAT_WORDS, timepoint ? TIMEPOINT_WORDS : 2);
   const first = chunks[0];
   if (!first) {
     // A line of commas only (`,`): nothing is read from it, and a comma is not a blank.
@@ -293,7 +297,7 @@ function parseLineUnsafe(text: string, line: number): LineNode {
 
   const section = sectionOf(first);
   // A note line's prose is not read as words: what follows reads only its first two.
-  if (section?.id !== 'note') chunks = moreWordsOf(body, FORMAT_WORDS);
+  if (section?.id !== 'note') chunks = moreWordsOf(FORMAT_WORDS);
   const doubledComma = LEXED.doubledComma;
   // The words of a line are reused for the next line: what the tree keeps is copied (`keep`), and a
   // section word at the start of its line is one token shared by every such line.
@@ -330,10 +334,10 @@ function parseLineUnsafe(text: string, line: number): LineNode {
   return new SectionNode(line, text, comment, section.id, sectionToken, items, null, keptIssues(issues));
 }
 
-/** The first character of the first word of `body` (-1 for none): the lexer's words start after blanks and commas. */
-function firstWordChar(body: string): number {
-  for (let i = 0; i < body.length; i++) {
-    const c = body.charCodeAt(i);
+/** The first character of the first word of `source` from `from` to `end` (-1 for none): the lexer's words start after blanks and commas. */
+function firstWordChar(source: string, from: number, end: number): number {
+  for (let i = from; i < end; i++) {
+    const c = source.charCodeAt(i);
     if (c !== 0x2c /* , */ && !isBlank(c)) return c;
   }
   return -1;
@@ -911,16 +915,17 @@ function readSlashGroup(chunk: Word, source: string, meanLimit = -1): PairNode |
   let slash = slashIn(chunk, 0);
   if (slash < 0) return null;
   // Numbers separated by single slashes, read in place in the line (no split of the chunk, and
-  // its text is not cut out): `from`, `slash` and `end` are places in the chunk.
-  const body = chunk.body;
-  const wordStart = chunk.start;
+  // its text is not cut out): `from`, `slash` and `end` are places in the chunk, `wordStart` the
+  // chunk's place in the text it is read in (see `Word`).
+  const body = chunk.source;
+  const wordStart = chunk.base + chunk.start;
   const packed = GROUP_NUMBERS;
   let count = 0;
   let comma = false;
   let from = 0;
   let groupEnd = chunk.end;
   for (let k = 0; ; k++) {
-    const end = slash < 0 ? chunk.end - wordStart : slash;
+    const end = slash < 0 ? chunk.end - chunk.start : slash;
     if (end === from) return null;
     const length = scanWordFrom(chunk, from);
     if (length !== end - from) {
@@ -932,7 +937,7 @@ function readSlashGroup(chunk: Word, source: string, meanLimit = -1): PairNode |
         if (!(slash < 0 && k > 0 && meanLimit >= 0 && bracketAt(source, chunk.start + from + length, meanLimit, null) !== NO_BRACKET)) return null;
       } else if (slash >= 0) {
         // (After one number only, it is a number and its unit: `24mmol/L`.)
-        if (k === 0 || !isKnownUnitSpelling(body.slice(wordStart + from + length, chunk.end))) return null;
+        if (k === 0 || !isKnownUnitSpelling(body.slice(wordStart + from + length, chunk.base + chunk.end))) return null;
         slash = -1;
       }
       GROUP_UNIT_AT = from + length;
@@ -957,8 +962,10 @@ function readSlashGroup(chunk: Word, source: string, meanLimit = -1): PairNode |
  * line, as most words have none and their texts need not be cut out.
  */
 function slashIn(word: Word, from: number): number {
-  const body = word.body;
-  for (let i = word.start + from; i < word.end; i++) if (body.charCodeAt(i) === 0x2f /* / */) return i - word.start;
+  const body = word.source;
+  const start = word.base + word.start;
+  const end = word.base + word.end;
+  for (let i = start + from; i < end; i++) if (body.charCodeAt(i) === 0x2f /* / */) return i - start;
   return -1;
 }
 
@@ -969,7 +976,7 @@ function slashIn(word: Word, from: number): number {
  * word's own text is scanned instead.
  */
 function scanWordFrom(word: Word, from: number): number {
-  const length = scanNumber(word.body, word.start + from);
+  const length = scanNumber(word.source, word.base + word.start + from);
   return length <= word.end - word.start - from ? length : scanNumber(word.text, from);
 }
 
@@ -1569,7 +1576,7 @@ function unitWordAt(chunks: readonly Word[], i: number, section: SectionId, sour
  * so the words after most numbers cost two character reads here.
  */
 function startsTwoWordUnit(first: string, second: Word): boolean {
-  if (first.length !== 2 || (first.charCodeAt(1) | 0x20) !== 0x6d /* m */ || (second.body.charCodeAt(second.start) | 0x20) !== 0x68 /* h */) return false;
+  if (first.length !== 2 || (first.charCodeAt(1) | 0x20) !== 0x6d /* m */ || (second.source.charCodeAt(second.base + second.start) | 0x20) !== 0x68 /* h */) return false;
   const c = first.charCodeAt(0) | 0x20;
   return (c === 0x6d /* m */ || c === 0x63 /* c */) && isKnownUnitSpelling(`${first} ${second.text}`);
 }
