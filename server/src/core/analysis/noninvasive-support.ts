@@ -56,10 +56,13 @@ export function supportOfPressure(fieldId: string): NoninvasiveSupport | null {
   return fieldId === 'cpap_level' ? 'cpap' : fieldId === 'ipap' || fieldId === 'epap' ? 'niv' : null;
 }
 
+/** Every field `deviceSets` may answer yes for: the flow, the FiO2 and the pressures of the supports. */
+export const DEVICE_SETTING_FIELDS: readonly string[] = ['o2_flow', 'fio2', ...SUPPORT_PRESSURE_FIELDS];
+
 /**
  * Whether `fieldId` is a setting of the oxygen device `device` (a canonical device word): what the
  * device is set to, and what an oxygen line that names no device may restate of it at a later
- * timepoint (the timeline's `updatesTherapy`: `oxygen flow 4` after `oxygen cannula 2` is the
+ * timepoint (the timeline's `updatedDevice`: `oxygen flow 4` after `oxygen cannula 2` is the
  * cannula at 4 L/min). The one table of it:
  * - a flow (`o2_flow`) for every device but room air, which takes no oxygen;
  * - an FiO2 for the devices that set one: a Venturi mask (its entrainment valve gives a fixed

@@ -9,6 +9,7 @@
  */
 import type { InputValue, Timepoint } from '../analysis/model';
 import type { DerivedValue, TimepointDerivation } from '../derive/model';
+import { DEVICE_SETTING_FIELDS } from '../analysis/noninvasive-support';
 import { computedValueOf } from '../derive/registry';
 import { fieldById } from '../fields/registry';
 import { carriedFromText, carriedMinutes, formatStated, timeText, type CarriedOrigin } from '../present';
@@ -48,9 +49,6 @@ function oldSettings(tp: Timepoint, limitMinutes: number): OldSetting[] {
   return out;
 }
 
-/** The settings an oxygen line that names no device may restate of the device in force (`deviceSets`). */
-const DEVICE_SETTINGS: readonly string[] = ['o2_flow', 'fio2', 'ipap', 'epap', 'cpap_level'];
-
 /**
  * Whether the oxygen device carried here was written about within the limit: an oxygen line that
  * names no device restated a setting of it here, or at a timepoint carried from within the limit
@@ -59,7 +57,7 @@ const DEVICE_SETTINGS: readonly string[] = ['o2_flow', 'fio2', 'ipap', 'epap', '
  * the line, and only the settings it did not restate are as old as their own lines.
  */
 function deviceRestated(tp: Timepoint, limitMinutes: number): boolean {
-  for (const id of DEVICE_SETTINGS) {
+  for (const id of DEVICE_SETTING_FIELDS) {
     const input = tp.values.heldSetting(id);
     if (!input || input.stated.section !== 'oxygen') continue;
     if (input.origin.kind === 'here') return true;
