@@ -84,7 +84,8 @@ describe('inputs and where they came from', () => {
     const labs = derivation('@ 08:00\nlabs na 140');
     expect(labs.missing.find((m) => m.id === 'delta_ratio')).toMatchObject({ needs: ['cl', 'hco3'], message: 'add cl and hco3 to get Δ ratio' });
     const gas = derivation('@ 08:00\nabg po2 71 mmhgg');
-    expect(gas.missing.find((m) => m.id === 'aa_gradient')?.message).toBe('add po2, fio2 (or an oxygen line) and pco2 to get A–a');
+    // The po2 is written, in a unit Pneumark does not read: a usable one is asked for, on its line.
+    expect(gas.missing.find((m) => m.id === 'aa_gradient')?.message).toBe('add a usable po2 (the one on line 2 is not used: see its finding), fio2 (or an oxygen line) and pco2 to get A–a');
   });
 
   it('names a value whose short name ends in a sign without the sign', () => {

@@ -18,6 +18,9 @@ import { defineDerived, type DeriveContext, type Outcome, type Term } from './co
 import { decimalsAgainst, formatNumber } from '../util/format';
 import type { Kept } from '../util/small-store';
 
+/** The fields `bicarbonate` reads, in its order (what to add where one written is not used). */
+const BICARBONATES: readonly string[] = ['hco3_serum', 'hco3', 'hco3_venous'];
+
 /**
  * The bicarbonate of the anion gap: the laboratory's when it gave one, else the arterial gas
  * analyser's, else a venous gas analyser's (the sodium and chloride of a venous gas come with a
@@ -94,7 +97,7 @@ export const hco3Calculated = defineDerived({
   compute(c) {
     const ph = c.field('ph', 'pH');
     const paco2 = c.field('paco2', 'PaCO2');
-    if (!ph || !paco2) return c.missing([ph, 'ph'], [paco2, 'pco2']);
+    if (!ph || !paco2) return c.missing([ph, c.needFor('ph', 'ph')], [paco2, c.needFor('paco2', 'pco2')]);
     return c.value(hco3FromPhPco2(ph.value, paco2.value), [ph, paco2]);
   },
 });
@@ -131,7 +134,7 @@ export const anionGapDef = defineDerived({
     const na = c.field('na', 'Na');
     const cl = c.field('cl', 'Cl');
     const hco3 = bicarbonate(c);
-    if (!na || !cl || !hco3) return c.missing([na, 'na'], [cl, 'cl'], [hco3, 'hco3']);
+    if (!na || !cl || !hco3) return c.missing([na, c.needFor('na', 'na')], [cl, c.needFor('cl', 'cl')], [hco3, c.needFor(BICARBONATES, 'hco3')]);
     return c.value(anionGap(na.value, cl.value, hco3.value), [na, cl, hco3], { notes: ['without potassium', ...gasHco3Doubted(c, hco3)] });
   },
 });
@@ -149,7 +152,7 @@ export const anionGapCorrected = defineDerived({
   compute(c) {
     const ag = c.derived('anion_gap', 'AG');
     const albumin = c.field('albumin', 'albumin');
-    if (!ag || !albumin) return c.missing([ag, c.lacking('anion_gap')], [albumin, 'albumin']);
+    if (!ag || !albumin) return c.missing([ag, c.lacking('anion_gap')], [albumin, c.needFor('albumin', 'albumin')]);
     return c.value(anionGapAlbuminCorrected(ag.value, albumin.value), [ag, albumin]);
   },
 });
@@ -168,7 +171,7 @@ export const deltaRatioDef = defineDerived({
   compute(c) {
     const ag = c.derived('anion_gap_albumin_corrected', 'AG') ?? c.derived('anion_gap', 'AG');
     const hco3 = bicarbonate(c);
-    if (!ag || !hco3) return c.missing([ag, c.lacking('anion_gap')], [hco3, 'hco3']);
+    if (!ag || !hco3) return c.missing([ag, c.lacking('anion_gap')], [hco3, c.needFor(BICARBONATES, 'hco3')]);
     if (hco3.value >= 24) return { kind: 'na', reason: 'HCO3 is not below 24 mmol/L' };
     // Compared as the classification compares it: a gap of 12 on paper is 12, however it was summed.
     if (sideOf(ag.value, ANION_GAP_UPPER_NORMAL_MMOL_L) <= 0) return { kind: 'na', reason: 'the anion gap is not raised' };
@@ -191,7 +194,7 @@ export const paco2Expected = defineDerived({
   compute(c) {
     const cls = classification(c);
     const hco3 = c.field('hco3', 'HCO3');
-    if (!cls || !hco3) return c.missing([hco3, 'hco3']);
+    if (!cls || !hco3) return c.missing([hco3, c.needFor('hco3', 'hco3')]);
     const withheld = withheldForInconsistentGas(cls);
     if (withheld) return withheld;
     if (cls.primary === 'metabolic-acidosis') {
@@ -222,7 +225,7 @@ function respiratoryExpected(chronicity: 'acute' | 'chronic') {
     compute(c) {
       const cls = classification(c);
       const paco2 = c.field('paco2', 'PaCO2');
-      if (!cls || !paco2) return c.missing([paco2, 'pco2']);
+      if (!cls || !paco2) return c.missing([paco2, c.needFor('paco2', 'pco2')]);
       const withheld = withheldForInconsistentGas(cls);
       if (withheld) return withheld;
       if (cls.primary !== 'respiratory-acidosis' && cls.primary !== 'respiratory-alkalosis') return { kind: 'na', reason: 'the primary disorder is not respiratory' };

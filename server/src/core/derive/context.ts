@@ -346,8 +346,9 @@ export class DeriveContext {
   /** What to add to get FiO2 (a low-flow device needs a stated FiO2). */
   fio2Need(): string {
     // An FiO2 is written but kept out of calculations (impossible, or its unit in doubt): mend that one.
+    const unusable = this.unusableNeed('fio2');
+    if (unusable !== null) return unusable;
     const written = this.input('fio2');
-    if (written && !written.stated.usable) return `a usable fio2 (the one on line ${written.stated.line + 1} is not used: see its finding)`;
     const device = this.word('device');
     if (device?.word === 'room air' && flowOnRoomAir(this.timepoint.values) !== null) return 'the oxygen device (room air takes no oxygen flow)';
     if (written && device?.word === 'room air' && isRoomAirContradiction(written, this.timepoint.values)) return 'the oxygen device, or an FiO2 of 0.21 (room air is no added oxygen)';
@@ -375,6 +376,17 @@ export class DeriveContext {
     if (set === null || !(set.value > 0)) return null;
     const mode = this.word('mode');
     return mode !== null && MODES_WITH_BACKUP_RATE.has(mode.word) ? null : set;
+  }
+
+  /**
+   * What to add for the rate `respiratoryRate` reads, where it has none: a usable one in place of a
+   * measured rate, or of a set rate it would read (not a backup rate), written but not used; else `rr`.
+   */
+  rateNeed(): string {
+    const measured = this.unusableNeed('rr');
+    if (measured !== null) return measured;
+    const mode = this.word('mode');
+    return (mode !== null && MODES_WITH_BACKUP_RATE.has(mode.word) ? null : this.unusableNeed('vent_rate')) ?? 'rr';
   }
 
   /**
@@ -432,6 +444,8 @@ export class DeriveContext {
    * on a vent line, and a vent line with a setting ends the support); else `peep`.
    */
   peepNeed(): string {
+    const peep = this.unusableNeed('peep');
+    if (peep !== null) return peep;
     const device = this.word('device');
     const pressure = device === null ? null : this.input('epap') ?? this.input('cpap_level');
     if (device !== null && pressure !== null && pressure.stated.value !== 0 && !givesPressure(device.word, pressure.stated.fieldId)) {
@@ -440,7 +454,8 @@ export class DeriveContext {
       return `a device that gives the ${written} on line ${pressure.stated.line + 1} (${supportOfPressure(pressure.stated.fieldId)}: ${device.word} gives ${given}, see PN318)`;
     }
     const support = this.noninvasiveSupport();
-    return support === null ? 'peep' : END_EXPIRATORY_NEED[support];
+    if (support === null) return 'peep';
+    return this.unusableNeed(support === 'niv' ? 'epap' : 'cpap_level') ?? END_EXPIRATORY_NEED[support];
   }
 
   value(value: number | null, terms: readonly (Term | null)[], extra: ValueExtras = NO_EXTRAS): Outcome {
@@ -465,8 +480,39 @@ export class DeriveContext {
    * not carried (`add the measured vt at this timepoint`).
    */
   need(id: string): string {
+    const unusable = this.unusableNeed(id);
+    if (unusable !== null) return unusable;
     const key = fieldById(id)?.aliases[0] ?? id;
     return this.measuredByMode(id) ? `the measured ${key} at this timepoint` : key;
+  }
+
+  /**
+   * What to add for an input read from the fields `ids` (the first usable one of them): where the
+   * value in force for one of them was written (here, carried or in the header) but is kept out of
+   * calculations, a usable one in its place (`unusableNeed`); else `key`, what to add where nothing
+   * was written.
+   */
+  needFor(ids: string | readonly string[], key: string): string {
+    if (typeof ids === 'string') return this.unusableNeed(ids) ?? key;
+    for (const id of ids) {
+      const unusable = this.unusableNeed(id);
+      if (unusable !== null) return unusable;
+    }
+    return key;
+  }
+
+  /**
+   * Where the value in force for field `id` was written but is not used (a bare gas pressure doubted
+   * as the other unit, a unit the field does not take, an impossible value): `a usable pco2 (the one
+   * on line 3 is not used: see PN204)`, with the key of the section it was written in, so that a user
+   * who wrote it is not told to add it; null where none is in force, or the one in force is usable.
+   */
+  unusableNeed(id: string): string | null {
+    const input = this.input(id);
+    if (input === null || input.stated.usable) return null;
+    const stated = input.stated;
+    const why = stated.unitDoubt !== null ? 'PN204' : 'its finding';
+    return `a usable ${keyInSection(stated)} (the one on line ${stated.line + 1} is not used: see ${why})`;
   }
 
   /** What to add to get another derived value (its own missing inputs), for messages. */
@@ -498,6 +544,14 @@ function withoutNulls(terms: readonly (Term | null)[]): readonly Term[] {
   const kept: Term[] = [];
   for (const t of terms) if (t !== null) kept.push(t);
   return kept;
+}
+
+/**
+ * The key to write a stated value's field with: its canonical key, which every section the field
+ * is stated in takes (a gas's `pco2` on abg and vbg lines alike, each its own field).
+ */
+function keyInSection(stated: InputValue['stated']): string {
+  return stated.field.aliases[0] ?? stated.field.id;
 }
 
 function defaultTermName(fieldId: string): string {

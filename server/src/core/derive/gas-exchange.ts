@@ -79,7 +79,7 @@ export const pao2Alveolar = defineDerived({
   compute(c) {
     const pio2 = c.derived('pio2', 'PiO2');
     const paco2 = c.field('paco2', 'PaCO2');
-    if (!pio2 || !paco2) return c.missing([pio2, c.lacking('pio2')], [paco2, 'pco2']);
+    if (!pio2 || !paco2) return c.missing([pio2, c.lacking('pio2')], [paco2, c.needFor('paco2', 'pco2')]);
     const rq = rqTerm(c.settings.respiratoryQuotient);
     if (c.settings.alveolarEquation === 'full') {
       const fio2 = c.fio2();
@@ -134,7 +134,7 @@ export const aaGradientDef = defineDerived({
   compute(c) {
     const pA = c.derived('pao2_alveolar', 'PAO2');
     const pa = c.field('pao2', 'PaO2');
-    if (!pA || !pa) return c.missing([pa, 'po2'], [pA, c.lacking('pao2_alveolar')]);
+    if (!pA || !pa) return c.missing([pa, c.needFor('pao2', 'po2')], [pA, c.lacking('pao2_alveolar')]);
     if (pA.value < 0) return { kind: 'na', reason: `the alveolar PO2 comes out negative (${Math.round(pA.value)} mmHg): this FiO2, pressure and PaCO2 cannot go together (see PN401)`, withheldBy: 'PN401' };
     const g = aaGradient(pA.value, pa.value);
     if (g === null) return c.value(null, []);
@@ -185,7 +185,7 @@ export const aaGradientUpperNormalDef = defineDerived({
   anchors: ['pao2'],
   compute(c) {
     const age = c.field('age', 'age');
-    if (!age) return c.missing([age, 'age (patient line)']);
+    if (!age) return c.missing([age, c.needFor('age', 'age (patient line)')]);
     if (isUnderAdultAge(age.value)) return { kind: 'na', reason: `${AA_RULES_FOR_ADULTS}: no upper normal at age ${formatShort(age.value)} y`, explained: true };
     const upper = aaGradientUpperNormal(age.value, c.settings.aaGradientRule);
     // Shown beside the gradient: with the decimals that keep the gradient on its side of it (A–a 11.8 above 11.5, not 12 and 12).
@@ -208,7 +208,7 @@ export const aToARatio = defineDerived({
   compute(c) {
     const pa = c.field('pao2', 'PaO2');
     const pA = c.derived('pao2_alveolar', 'PAO2');
-    if (!pa || !pA) return c.missing([pa, 'po2'], [pA, c.lacking('pao2_alveolar')]);
+    if (!pa || !pA) return c.missing([pa, c.needFor('pao2', 'po2')], [pA, c.lacking('pao2_alveolar')]);
     if (isAboveAlveolar(pa.value, pA.value, allowanceAt(c))) return ABOVE_ALVEOLAR;
     // Within rounding above the alveolar PO2 the gradient shows as 0, and the ratio says the same:
     // 1, not the 1.06 that no blood can reach (a gradient of 0 beside a ratio above 1 would contradict it).
@@ -234,7 +234,7 @@ export const pfRatioDef = defineDerived({
   compute(c) {
     const pa = c.field('pao2', 'PaO2');
     const fio2 = c.fio2();
-    if (!pa || !fio2) return c.missing([pa, 'po2'], [fio2, c.fio2Need()]);
+    if (!pa || !fio2) return c.missing([pa, c.needFor('pao2', 'po2')], [fio2, c.fio2Need()]);
     return pao2Withheld(c, pa) ?? c.value(pfRatio(pa.value, fio2.value), [pa, fio2]);
   },
 });
@@ -333,7 +333,7 @@ export const sfRatioDef = defineDerived({
   compute(c) {
     const spo2 = c.field('spo2', 'SpO2');
     const fio2 = c.fio2();
-    if (!spo2 || !fio2) return c.missing([spo2, 'spo2'], [fio2, c.fio2Need()]);
+    if (!spo2 || !fio2) return c.missing([spo2, c.needFor('spo2', 'spo2')], [fio2, c.fio2Need()]);
     const notes = spo2.value > OSI_MAX_SPO2_PERCENT ? ['SpO2 above 97 %: the S/F ratio no longer tracks P/F (Rice 2007)'] : [];
     return c.value(sfRatio(spo2.value, fio2.value), [spo2, fio2], { notes });
   },
@@ -355,7 +355,7 @@ export const roxIndexDef = defineDerived({
     const spo2 = c.field('spo2', 'SpO2');
     const fio2 = c.fio2();
     const rr: Term | null = c.field('rr', 'RR');
-    if (!spo2 || !fio2 || !rr) return c.missing([spo2, 'spo2'], [fio2, c.fio2Need()], [rr, 'rr']);
+    if (!spo2 || !fio2 || !rr) return c.missing([spo2, c.needFor('spo2', 'spo2')], [fio2, c.fio2Need()], [rr, c.needFor('rr', 'rr')]);
     return c.value(roxIndex(spo2.value, fio2.value, rr.value), [spo2, fio2, rr], { notes: ['at 12 h of high flow, ≥ 4.88 was associated with success and < 3.85 with failure (Roca 2019)'] });
   },
 });
@@ -375,7 +375,7 @@ export const oxygenationIndexDef = defineDerived({
     const map = c.field('mean_airway_pressure', 'MAP');
     const pa = c.field('pao2', 'PaO2');
     if (!map && !c.statedHere('mean_airway_pressure')) return { kind: 'na', reason: 'needs a mean airway pressure (map on the vent line)' };
-    if (!fio2 || !map || !pa) return c.missing([fio2, 'fio2'], [map, 'map'], [pa, 'po2']);
+    if (!fio2 || !map || !pa) return c.missing([fio2, c.needFor('fio2', 'fio2')], [map, c.needFor('mean_airway_pressure', 'map')], [pa, c.needFor('pao2', 'po2')]);
     return pao2Withheld(c, pa) ?? c.value(oxygenationIndex(fio2.value, map.value, pa.value), [fio2, map, pa]);
   },
 });
@@ -395,7 +395,7 @@ export const oxygenSaturationIndexDef = defineDerived({
     const map = c.field('mean_airway_pressure', 'MAP');
     const spo2 = c.field('spo2', 'SpO2');
     if (!map) return { kind: 'na', reason: 'needs a mean airway pressure (map on the vent line)' };
-    if (!fio2 || !spo2) return c.missing([fio2, 'fio2'], [spo2, 'spo2']);
+    if (!fio2 || !spo2) return c.missing([fio2, c.needFor('fio2', 'fio2')], [spo2, c.needFor('spo2', 'spo2')]);
     if (spo2.value > OSI_MAX_SPO2_PERCENT) return { kind: 'na', reason: 'valid only for SpO2 ≤ 97 %' };
     return c.value(oxygenSaturationIndex(fio2.value, map.value, spo2.value), [fio2, map, spo2]);
   },

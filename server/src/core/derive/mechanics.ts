@@ -36,10 +36,10 @@ export const minuteVentilation = defineDerived({
     const hfov = c.oscillation();
     if (hfov) return hfov;
     const rr = c.respiratoryRate();
-    if (!vt) return c.missing([vt, c.need('vt')], [rr, 'rr']);
+    if (!vt) return c.missing([vt, c.need('vt')], [rr, c.rateNeed()]);
     // A set rate of 0 gives no minute ventilation of 0: withheld where it is a mistake (PN312),
     // else a measured rate is asked for (in a spontaneous mode the patient sets the rate).
-    if (!rr) return c.zeroSetRate() ?? c.missing([rr, 'rr']);
+    if (!rr) return c.zeroSetRate() ?? c.missing([rr, c.rateNeed()]);
     return c.value(minuteVentilationLPerMin(vt.value, rr.value), [vt, rr]);
   },
 });
@@ -80,7 +80,7 @@ export const pbw = defineDerived({
   compute(c) {
     const height = c.field('height', 'height');
     const sex = c.word('sex');
-    if (!height || !sex) return c.missing([height, 'height (patient line)'], [sex, 'sex (patient line)']);
+    if (!height || !sex) return c.missing([height, c.needFor('height', 'height (patient line)')], [sex, c.needFor('sex', 'sex (patient line)')]);
     // The equation was made for adults: a child's weight is not read from it (nor a tidal volume per kg).
     const age = c.number('age');
     // Said where the value would have been (show, the hovers), as nothing can be added to get it.
@@ -225,7 +225,7 @@ export const airwayResistanceDef = defineDerived({
     const plat = c.field('plateau', 'Pplat');
     const flow = c.field('insp_flow', 'flow');
     if (!peak || !plat) return { kind: 'na', reason: 'needs peak and plateau pressures' };
-    if (!flow) return c.missing([flow, 'flow (inspiratory flow, L/min)']);
+    if (!flow) return c.missing([flow, c.needFor('insp_flow', 'flow (inspiratory flow, L/min)')]);
     return c.value(airwayResistance(peak.value, plat.value, flow.value), [peak, plat, flow]);
   },
 });
@@ -260,7 +260,7 @@ export const mechanicalPower = defineDerived({
       const withheld = c.zeroSetRate();
       if (withheld) return withheld;
     }
-    if (!rr || !vt || !peep) return c.missing([rr, 'rr'], [vt, c.need('vt')], [peep, 'peep']);
+    if (!rr || !vt || !peep) return c.missing([rr, c.rateNeed()], [vt, c.need('vt')], [peep, c.needFor('peep', 'peep')]);
     return c.value(mechanicalPowerSimplified(rr.value, vt.value, peak.value, plat.value, peep.value), [rr, vt, peak, plat, peep]);
   },
 });
@@ -308,7 +308,7 @@ export const mechanicalPowerSurrogateDef = defineDerived({
       const withheld = c.withheldFrom('minute_ventilation');
       if (withheld) return withheld;
     }
-    if (!ve || !peep) return c.missing([ve, c.lacking('minute_ventilation')], [peep, 'peep']);
+    if (!ve || !peep) return c.missing([ve, c.lacking('minute_ventilation')], [peep, c.needFor('peep', 'peep')]);
     return c.value(mechanicalPowerSurrogate(ve.value, peak.value, peep.value, flow.value), [ve, peak, peep, flow]);
   },
 });
@@ -338,7 +338,7 @@ export const ventilatoryRatioDef = defineDerived({
       const none = withoutPbw(c);
       if (none) return none;
     }
-    if (!ve || !paco2 || !p) return c.missing([ve, c.lacking('minute_ventilation')], [paco2, 'pco2'], [p, c.lacking('predicted_body_weight')]);
+    if (!ve || !paco2 || !p) return c.missing([ve, c.lacking('minute_ventilation')], [paco2, c.needFor('paco2', 'pco2')], [p, c.lacking('predicted_body_weight')]);
     return c.value(ventilatoryRatio(ve.value * 1000, paco2.value, p.value), [ve, paco2, p]);
   },
 });

@@ -21,7 +21,7 @@ export const cao2 = defineDerived({
     const sat = c.field('sao2', 'SaO2') ?? c.field('spo2', 'SaO2');
     const pa = c.field('pao2', 'PaO2');
     if (!hb) return { kind: 'na', reason: 'needs a haemoglobin' };
-    if (!sat || !pa) return c.missing([sat, 'sao2'], [pa, 'po2']);
+    if (!sat || !pa) return c.missing([sat, c.needFor(SATURATIONS_OF_CONTENT, 'sao2')], [pa, c.needFor('pao2', 'po2')]);
     const withheld = pao2Withheld(c, pa);
     if (withheld) return withheld;
     const hufner: Term = { name: 'Hüfner', value: c.settings.hufnerConstant, unit: 'mL/g', decimals: 2, origin: { kind: 'default', description: 'Hüfner constant (setting pneumark.hufnerConstant)' } };
@@ -96,7 +96,7 @@ export const fio2Estimated = defineDerived({
     if (!device || (device.word !== 'cannula' && device.word !== 'mask')) return { kind: 'na', reason: 'only for nasal cannula and simple mask' };
     if (c.field('fio2')) return { kind: 'na', reason: 'an FiO2 is stated' };
     const flow = c.field('o2_flow', 'flow');
-    if (!flow) return c.missing([flow, 'flow']);
+    if (!flow) return c.missing([flow, c.needFor('o2_flow', 'flow')]);
     const value = fio2EstimateLowFlow(device.word, flow.value);
     const formula = device.word === 'cannula' ? '0.21 + 0.04 × {flow}' : '0.35 + 0.04 × ({flow} − 5)';
     return c.value(value, [flow], { estimate: true, formula, notes: ['a rough estimate: the true FiO2 depends on breathing pattern; not used for P/F or the A–a gradient'] });
@@ -104,6 +104,9 @@ export const fio2Estimated = defineDerived({
 });
 
 /** How the Hb of a gas line is named among a formula's inputs. */
+/** The saturations an oxygen content reads, in its order (what to add where one written is not used). */
+const SATURATIONS_OF_CONTENT: readonly string[] = ['sao2', 'spo2'];
+
 const GAS_HB_NOTE = 'abg line, measured with the gas';
 
 /**
