@@ -82,7 +82,10 @@ describe('a later oxygen line that names no device updates the therapy in force'
     // physiology/oxygen-transport.ts `nasal-cannula-fio2`), from the carried device and the new flow.
     const estimate = derived(CANNULA, 'fio2_estimated', {}, 1);
     expect(estimate.value).toBeCloseTo(0.37, 10);
-    expect(estimate.inputs.map((t) => [t.name, t.origin.kind])).toEqual([['flow', 'here']]);
+    // The estimate rests on the device as well as the flow (the rule differs by device): the device
+    // is among its inputs, carried from line 2.
+    expect(estimate.inputs.map((t) => [t.name, t.word ?? t.value, t.origin.kind, 'line' in t.origin ? t.origin.line : null])).toEqual([['device', 'cannula', 'carried', 1], ['flow', 4, 'here', 3]]);
+    expect(estimate.usesCarried).toBe(true);
     // P/F asks for the FiO2 of a cannula, not for the device line it had lost.
     const missing = checkNote(CANNULA).analysis.derivation(1)!.missing.find((m) => m.id === 'pf_ratio')!.message;
     expect(missing).toContain("a cannula's FiO2 is only an estimate");
@@ -328,6 +331,38 @@ describe('what reads the oxygen in force', () => {
     const flows = (bundle.entry ?? []).map((e) => e.resource).filter((o) => /^obs-\d+-o2-flow/.test(o.id));
     expect(flows.map((o) => o.valueQuantity?.value)).toEqual([50, 40]);
     for (const o of flows) expect(o.code.coding ?? []).toEqual([]);
+  });
+});
+
+describe('the FiO2 estimate names the device it rests on', () => {
+  it('its hover and show mark the carried device; the JSON inputs give it as a word with its origin', async () => {
+    const d = derived(CANNULA, 'fio2_estimated', {}, 1);
+    const { derivedHover } = await import('../../server/src/core/service/derived-hover');
+    const hover = derivedHover(d);
+    expect(hover).toContain('- device cannula — carried from day 1 08:00, line 2');
+    expect(hover).toContain('- flow 4.0 L/min — line 4');
+    expect(hover).toContain('Uses a value carried forward');
+    const { renderShow } = await import('../../server/src/cli/render-show');
+    const { paint } = await import('../../server/src/cli/colour');
+    expect(renderShow('a.pneu', checkNote(CANNULA), paint(false))).toContain('FiO2 est 0.37*');
+    const { timepointsJson, timepointV2 } = await import('../../server/src/cli/timepoints-json');
+    const json = timepointsJson(checkNote(CANNULA, {}, { keepDerivations: true }));
+    const inputs = json[1]!.derived.find((v) => v.id === 'fio2_estimated')!.inputs;
+    expect(inputs.map((t) => [t.name, t.value, t.unit, t.origin.kind, t.origin.line])).toEqual([['device', 'cannula', '', 'carried', 2], ['flow', 4, 'L/min', 'here', 4]]);
+    const v2 = timepointV2(json[1]!, new Map()) as { derived: { id: string; inputs: { name: string; value: unknown; origin: { kind: string; line?: number } }[] }[] };
+    expect(v2.derived.find((v) => v.id === 'fio2_estimated')!.inputs.map((t) => [t.name, t.value, t.origin.kind, t.origin.line])).toEqual([['device', 'cannula', 'carried', 2], ['flow', 4, 'here', 4]]);
+  });
+
+  it('stated with its flow, the device is an input stated here, and nothing is marked carried', () => {
+    const d = derived('@ day 1 08:00\noxygen cannula 2 L/min\nabg 7.40/40/70/24', 'fio2_estimated', {}, 0);
+    expect(d.inputs.map((t) => [t.name, t.origin.kind])).toEqual([['device', 'here'], ['flow', 'here']]);
+    expect(d.usesCarried).toBe(false);
+  });
+
+  it('PN326: a device carried from long before with its flow restated within the limit is still not named', () => {
+    const text = '@ day 1 08:00\noxygen cannula 2 L/min\n@ day 2 04:00\noxygen flow 4 L/min\nabg 7.40/40/70/24';
+    expect(derived(text, 'fio2_estimated', {}, 1).inputs.map((t) => t.origin.kind)).toEqual(['carried', 'here']);
+    expect(codes(text, 'PN326')).toEqual([]);
   });
 });
 
