@@ -428,6 +428,9 @@ const SPEC_LINES: Readonly<Record<string, readonly string[] | { readonly on: str
   'oxygen fio2 0.3': { on: '@ 08:00\noxygen cannula 2\n@ 10:00\noxygen fio2 0.3', codes: [] },
   'oxygen ipap 14, epap 6': { on: '@ 08:00\noxygen cannula 2\n@ 10:00\noxygen ipap 14, epap 6', codes: [] },
   'oxygen canula, flow 3': ['PN201'],
+  // NIV or CPAP by its pressures alone, updated as the device named would be.
+  'oxygen level 8': [],
+  'oxygen level 10': { on: '@ 08:00\noxygen level 8\n@ 10:00\noxygen level 10', codes: [] },
 };
 /** Quoted shapes rather than lines: placeholders, or a section word named in a sentence. */
 const SPEC_TEMPLATES = new Set(['@ day N HH:MM', '@ HH:MM', '@ day N', 'units gas']);

@@ -82,7 +82,10 @@ describe('a later oxygen line that names no device updates the therapy in force'
     // physiology/oxygen-transport.ts `nasal-cannula-fio2`), from the carried device and the new flow.
     const estimate = derived(CANNULA, 'fio2_estimated', {}, 1);
     expect(estimate.value).toBeCloseTo(0.37, 10);
-    expect(estimate.inputs.map((t) => [t.name, t.origin.kind])).toEqual([['flow', 'here']]);
+    // The estimate rests on the device as well as the flow (the rule differs by device): the device
+    // is among its inputs, carried from line 2.
+    expect(estimate.inputs.map((t) => [t.name, t.word ?? t.value, t.origin.kind, 'line' in t.origin ? t.origin.line : null])).toEqual([['device', 'cannula', 'carried', 1], ['flow', 4, 'here', 3]]);
+    expect(estimate.usesCarried).toBe(true);
     // P/F asks for the FiO2 of a cannula, not for the device line it had lost.
     const missing = checkNote(CANNULA).analysis.derivation(1)!.missing.find((m) => m.id === 'pf_ratio')!.message;
     expect(missing).toContain("a cannula's FiO2 is only an estimate");
@@ -141,6 +144,72 @@ describe('a later oxygen line that names no device updates the therapy in force'
   });
 });
 
+describe('NIV or CPAP written by its pressures alone: the support counts as the device in force', () => {
+  const second = (first: string, then: string) => `@ day 1 08:00\n${first}\n@ day 1 10:00\n${then}\n`;
+
+  it('NIV by an IPAP and an EPAP, then a higher IPAP: the EPAP carries with its origin, and no device is made up', () => {
+    const text = second('oxygen ipap 14, epap 6', 'oxygen ipap 16');
+    expect(inForce(text, 1, 'ipap')).toEqual([16, 'here', 3]);
+    expect(inForce(text, 1, 'epap')).toEqual([6, 'carried', 1]);
+    expect(inForce(text, 1, 'device')).toEqual([null, null, null]);
+    expect([...timepoints(text)[1]!.values.values()].map((v) => v.stated.fieldId).sort()).toEqual(['epap', 'ipap']);
+    // Still NIV by its pressures (the one rule): its EPAP is the end-expiratory pressure.
+    expect(checkNote(text).findings.filter((f) => f.code === 'PN318')).toEqual([]);
+  });
+
+  it('CPAP by its level, then a new level: the level is the new one, nothing else is made up', () => {
+    const text = second('oxygen level 8, fio2 0.4', 'oxygen level 10');
+    expect(inForce(text, 1, 'cpap_level')).toEqual([10, 'here', 3]);
+    expect(inForce(text, 1, 'fio2')).toEqual([0.4, 'carried', 1]);
+    expect(inForce(text, 1, 'device')).toEqual([null, null, null]);
+  });
+
+  it('a level after NIV by its pressures is a switch to CPAP: it replaces, as a level is no setting of NIV', () => {
+    const text = second('oxygen ipap 14, epap 6', 'oxygen level 8');
+    expect(inForce(text, 1, 'cpap_level')).toEqual([8, 'here', 3]);
+    expect(inForce(text, 1, 'epap')).toEqual([null, null, null]);
+    expect(inForce(text, 1, 'ipap')).toEqual([null, null, null]);
+    // And an IPAP after CPAP by its level is a switch to NIV.
+    expect(inForce(second('oxygen level 8', 'oxygen ipap 14'), 1, 'cpap_level')).toEqual([null, null, null]);
+  });
+
+  it('an FiO2 after NIV by its pressures updates it (NIV sets an FiO2): the pressures carry', () => {
+    const text = second('oxygen ipap 14, epap 6', 'oxygen fio2 0.4');
+    expect(inForce(text, 1, 'fio2')).toEqual([0.4, 'here', 3]);
+    expect(inForce(text, 1, 'ipap')).toEqual([14, 'carried', 1]);
+    expect(inForce(text, 1, 'epap')).toEqual([6, 'carried', 1]);
+    expect(inForce(text, 1, 'device')).toEqual([null, null, null]);
+  });
+
+  it('a pressure written beside the support that it does not give (PN318) is not carried through the update', () => {
+    const text = second('oxygen ipap 14, epap 6, level 8', 'oxygen ipap 16');
+    expect(inForce(text, 1, 'epap')).toEqual([6, 'carried', 1]);
+    expect(inForce(text, 1, 'cpap_level')).toEqual([null, null, null]);
+  });
+
+  it('lines of one timepoint: unchanged, the later replaces the earlier', () => {
+    const one = '@ day 1 08:00\noxygen ipap 14, epap 6\noxygen ipap 16\n';
+    expect(inForce(one, 0, 'epap')).toEqual([null, null, null]);
+    expect(inForce('@ day 1 08:00\noxygen level 8\noxygen fio2 0.4\n', 0, 'cpap_level')).toEqual([null, null, null]);
+  });
+
+  it('hover, show and the exports give the carried pressure and no device', async () => {
+    const text = `${PATIENT}${second('oxygen ipap 14, epap 6', 'oxygen ipap 16\nabg 7.40/40/70/24')}`;
+    const { renderShow } = await import('../../server/src/cli/render-show');
+    const { paint } = await import('../../server/src/cli/colour');
+    const shown = renderShow('a.pneu', checkNote(text), paint(false));
+    expect(shown).toContain('carried  EPAP 6 cmH2O (carried from day 1 08:00, line 3)');
+    expect(shown).not.toMatch(/device niv/);
+    const rows = timepointRows('a.pneu', checkNote(text, {}, { keepDerivations: true }), plain);
+    expect([rows[1]!.device, rows[1]!.ipap_cmH2O, rows[1]!.epap_cmH2O]).toEqual([null, 16, 6]);
+    expect(String(rows[1]!.carried_fields).split(';')).toEqual(['epap']);
+    const { result, position } = noteAt(text.replace('@ day 1 10:00', '@ day 1 10:0|0'));
+    const hover = hoverAt(result, position)?.markdown ?? '';
+    expect(hover).toMatch(/EPAP[^\n]*carried from day 1 08:00, line 3/);
+    expect(hover).not.toMatch(/device[^\n]*niv/i);
+  });
+});
+
 describe('any other device-less oxygen line replaces the therapy, as before', () => {
   const second = (first: string, then: string) => `@ day 1 08:00\n${first}\n@ day 1 10:00\n${then}\n`;
 
@@ -163,8 +232,6 @@ describe('any other device-less oxygen line replaces the therapy, as before', ()
     expect(inForce(second('oxygen room air', 'oxygen flow 2'), 1, 'device')).toEqual([null, null, null]);
     const vent = second('vent mode VC, vt 420, rate 16, peep 8, fio2 0.5', 'oxygen flow 4');
     expect([inForce(vent, 1, 'device'), inForce(vent, 1, 'peep')]).toEqual([[null, null, null], [null, null, null]]);
-    // NIV by its pressures, no device named: nothing to update (the rule asks for a device).
-    expect(inForce(second('oxygen ipap 14, epap 6', 'oxygen ipap 16'), 1, 'epap')).toEqual([null, null, null]);
     // A word not read (a misspelt device?) leaves the line as written: it replaces.
     expect(inForce(second('oxygen hfnc 50, fio2 0.6', 'oxygen canula, flow 3'), 1, 'device')).toEqual([null, null, null]);
     // Nothing read at all: as before, the line ends the therapy.
@@ -246,7 +313,7 @@ describe('what reads the oxygen in force', () => {
     const { result, position } = noteAt(CANNULA.replace('flow 4 L/min', 'flow 4 L/m|in'));
     const hover = hoverAt(result, position)?.markdown ?? '';
     expect(hover).toContain('Value: **4.0 L/min**');
-    expect(hover).toContain('restates only settings of the device in force, which updates those');
+    expect(hover).toContain('restates only settings of the device in force, or of NIV or CPAP written by its pressures, which updates those');
     const tp = noteAt(CANNULA.replace('@ day 1 10:00', '@ day 1 10:0|0'));
     expect(hoverAt(tp.result, tp.position)?.markdown ?? '').toMatch(/cannula[^\n]*carried from day 1 08:00, line 2|carried from day 1 08:00, line 2[^\n]*cannula/);
   });
@@ -264,6 +331,38 @@ describe('what reads the oxygen in force', () => {
     const flows = (bundle.entry ?? []).map((e) => e.resource).filter((o) => /^obs-\d+-o2-flow/.test(o.id));
     expect(flows.map((o) => o.valueQuantity?.value)).toEqual([50, 40]);
     for (const o of flows) expect(o.code.coding ?? []).toEqual([]);
+  });
+});
+
+describe('the FiO2 estimate names the device it rests on', () => {
+  it('its hover and show mark the carried device; the JSON inputs give it as a word with its origin', async () => {
+    const d = derived(CANNULA, 'fio2_estimated', {}, 1);
+    const { derivedHover } = await import('../../server/src/core/service/derived-hover');
+    const hover = derivedHover(d);
+    expect(hover).toContain('- device cannula — carried from day 1 08:00, line 2');
+    expect(hover).toContain('- flow 4.0 L/min — line 4');
+    expect(hover).toContain('Uses a value carried forward');
+    const { renderShow } = await import('../../server/src/cli/render-show');
+    const { paint } = await import('../../server/src/cli/colour');
+    expect(renderShow('a.pneu', checkNote(CANNULA), paint(false))).toContain('FiO2 est 0.37*');
+    const { timepointsJson, timepointV2 } = await import('../../server/src/cli/timepoints-json');
+    const json = timepointsJson(checkNote(CANNULA, {}, { keepDerivations: true }));
+    const inputs = json[1]!.derived.find((v) => v.id === 'fio2_estimated')!.inputs;
+    expect(inputs.map((t) => [t.name, t.value, t.unit, t.origin.kind, t.origin.line])).toEqual([['device', 'cannula', '', 'carried', 2], ['flow', 4, 'L/min', 'here', 4]]);
+    const v2 = timepointV2(json[1]!, new Map()) as { derived: { id: string; inputs: { name: string; value: unknown; origin: { kind: string; line?: number } }[] }[] };
+    expect(v2.derived.find((v) => v.id === 'fio2_estimated')!.inputs.map((t) => [t.name, t.value, t.origin.kind, t.origin.line])).toEqual([['device', 'cannula', 'carried', 2], ['flow', 4, 'here', 4]]);
+  });
+
+  it('stated with its flow, the device is an input stated here, and nothing is marked carried', () => {
+    const d = derived('@ day 1 08:00\noxygen cannula 2 L/min\nabg 7.40/40/70/24', 'fio2_estimated', {}, 0);
+    expect(d.inputs.map((t) => [t.name, t.origin.kind])).toEqual([['device', 'here'], ['flow', 'here']]);
+    expect(d.usesCarried).toBe(false);
+  });
+
+  it('PN326: a device carried from long before with its flow restated within the limit is still not named', () => {
+    const text = '@ day 1 08:00\noxygen cannula 2 L/min\n@ day 2 04:00\noxygen flow 4 L/min\nabg 7.40/40/70/24';
+    expect(derived(text, 'fio2_estimated', {}, 1).inputs.map((t) => t.origin.kind)).toEqual(['carried', 'here']);
+    expect(codes(text, 'PN326')).toEqual([]);
   });
 });
 

@@ -52,10 +52,10 @@ export interface JsonOrigin {
   readonly carriedMinutes?: number | null;
 }
 
-/** An input of a derived value (version 1). */
+/** An input of a derived value (version 1); an input that is a word (the device of an FiO2 estimate) gives it as its value. */
 export interface JsonInput {
   readonly name: string;
-  readonly value: number | null;
+  readonly value: number | string | null;
   readonly unit: string;
   readonly origin: JsonOrigin;
   readonly note?: string;
@@ -144,7 +144,7 @@ function derivedJsonV2(d: DerivedValue, used: Map<string, KeyedDefinition>): unk
     substituted: d.substituted,
     estimate: d.estimate,
     usesCarried: d.usesCarried,
-    inputs: d.inputs.map((t) => ({ name: t.name, value: num(t.value), unit: t.unit, origin: originJsonV2(t.origin), ...(t.note ? { note: t.note } : {}) })),
+    inputs: d.inputs.map((t) => ({ name: t.name, value: t.word ?? num(t.value), unit: t.unit, origin: originJsonV2(t.origin), ...(t.note ? { note: t.note } : {}) })),
     notes: d.notes,
   };
 }
@@ -180,7 +180,7 @@ function timepointJson(tp: Timepoint, derivation: TimepointDerivation, writtenLa
       substituted: d.substituted,
       estimate: d.estimate,
       usesCarried: d.usesCarried,
-      inputs: d.inputs.map((t) => ({ name: t.name, value: num(t.value), unit: t.unit, origin: originJson(t.origin), ...(t.note ? { note: t.note } : {}) })),
+      inputs: d.inputs.map((t) => ({ name: t.name, value: t.word ?? num(t.value), unit: t.unit, origin: originJson(t.origin), ...(t.note ? { note: t.note } : {}) })),
       notes: d.notes,
       source: d.source,
     })),

@@ -14,7 +14,13 @@ export type DerivedCategory = 'atmosphere' | 'oxygenation' | 'acid-base' | 'mech
 /** One input of a formula. */
 export interface Term {
   readonly name: string;
+  /** The number put in the formula; NaN for an input that is a word (`word`). */
   readonly value: number;
+  /**
+   * The word of an input that is one (the oxygen device a cannula's or a mask's FiO2 estimate rests
+   * on): it has no number, is put in no formula, and is shown and exported as this word.
+   */
+  readonly word?: string;
   /** Display unit ('' for dimensionless). */
   readonly unit: string;
   readonly decimals: number;

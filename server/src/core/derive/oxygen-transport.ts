@@ -2,7 +2,7 @@
 import { SOURCES, arterialO2Content, fio2EstimateLowFlow, meanArterialPressure, oxygenDelivery } from '../physiology';
 import type { Timepoint } from '../analysis/model';
 import { formatStated } from '../present';
-import { defineDerived, type DeriveContext, type Outcome, type Term, type ValueExtras } from './context';
+import { defineDerived, type DeriveContext, type Outcome, type Term, type ValueExtras, type WordInForce } from './context';
 import type { DerivedValue } from './model';
 import { pao2Withheld } from './gas-exchange';
 
@@ -99,9 +99,17 @@ export const fio2Estimated = defineDerived({
     if (!flow) return c.missing([flow, c.needFor('o2_flow', 'flow')]);
     const value = fio2EstimateLowFlow(device.word, flow.value);
     const formula = device.word === 'cannula' ? '0.21 + 0.04 × {flow}' : '0.35 + 0.04 × ({flow} − 5)';
-    return c.value(value, [flow], { estimate: true, formula, notes: ['a rough estimate: the true FiO2 depends on breathing pattern; not used for P/F or the A–a gradient'] });
+    // The device is an input as the flow is: the rule differs by device, so the estimate rests on it
+    // (and where it is carried, hovers, `show` and PN326 see it so).
+    return c.value(value, [wordTerm(device), flow], { estimate: true, formula, notes: ['a rough estimate: the true FiO2 depends on breathing pattern; not used for P/F or the A–a gradient'] });
   },
 });
+
+/** A word value in force as a formula input (no number: `Term.word`), under its key. */
+function wordTerm(w: WordInForce): Term {
+  const field = w.input.stated.field;
+  return { name: field.aliases[0] ?? field.id, value: NaN, unit: '', decimals: 0, origin: w.input.origin, fieldId: field.id, word: w.word };
+}
 
 /** How the Hb of a gas line is named among a formula's inputs. */
 /** The saturations an oxygen content reads, in its order (what to add where one written is not used). */

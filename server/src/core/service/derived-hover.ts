@@ -81,6 +81,7 @@ function termKpa(t: Term, tp: Timepoint, extra = 0): string {
 /** `PaO2 71 mmHg`: an input as shown; at a kPa timepoint, a gas pressure is `PaO2 9.5 kPa (71 mmHg)`. */
 export function termText(t: Term, tp: Timepoint | null = null): string {
   const note = t.note ? ` (${t.note})` : '';
+  if (t.word !== undefined) return `${t.name} ${t.word}${note}`;
   if (tp && showsKpa(tp) && isGasTerm(t)) return `${t.name} ${termKpa(t, tp)} kPa (${formatNumber(t.value, t.decimals)} mmHg)${note}`;
   const unit = t.unit ? ` ${t.unit}` : '';
   return `${t.name} ${formatNumber(t.value, t.decimals)}${unit}${tp ? writtenInOtherUnit(t, tp) : ''}${note}`;
