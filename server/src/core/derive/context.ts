@@ -504,7 +504,7 @@ export class DeriveContext {
   /**
    * Where the value in force for field `id` was written but is not used (a bare gas pressure doubted
    * as the other unit, a unit the field does not take, an impossible value): `a usable pco2 (the one
-   * on line 3 is not used: see PN204)`, with the key of the section it was written in, so that a user
+   * on line 3 is not used: see PN204)`, with its field's key (`keyOf`), so that a user
    * who wrote it is not told to add it; null where none is in force, or the one in force is usable.
    */
   unusableNeed(id: string): string | null {
@@ -512,7 +512,7 @@ export class DeriveContext {
     if (input === null || input.stated.usable) return null;
     const stated = input.stated;
     const why = stated.unitDoubt !== null ? 'PN204' : 'its finding';
-    return `a usable ${keyInSection(stated)} (the one on line ${stated.line + 1} is not used: see ${why})`;
+    return `a usable ${keyOf(stated)} (the one on line ${stated.line + 1} is not used: see ${why})`;
   }
 
   /** What to add to get another derived value (its own missing inputs), for messages. */
@@ -548,9 +548,9 @@ function withoutNulls(terms: readonly (Term | null)[]): readonly Term[] {
 
 /**
  * The key to write a stated value's field with: its canonical key, which every section the field
- * is stated in takes (a gas's `pco2` on abg and vbg lines alike, each its own field).
+ * is stated in takes (`pco2` on abg and vbg lines alike, though each line's is its own field).
  */
-function keyInSection(stated: InputValue['stated']): string {
+function keyOf(stated: InputValue['stated']): string {
   return stated.field.aliases[0] ?? stated.field.id;
 }
 
