@@ -111,10 +111,10 @@ function wordTerm(w: WordInForce): Term {
   return { name: field.aliases[0] ?? field.id, value: NaN, unit: '', decimals: 0, origin: w.input.origin, fieldId: field.id, word: w.word };
 }
 
-/** How the Hb of a gas line is named among a formula's inputs. */
 /** The saturations an oxygen content reads, in its order (what to add where one written is not used). */
 const SATURATIONS_OF_CONTENT: readonly string[] = ['sao2', 'spo2'];
 
+/** How the Hb of a gas line is named among a formula's inputs. */
 const GAS_HB_NOTE = 'abg line, measured with the gas';
 
 /**

@@ -28,7 +28,7 @@ import { parseLine } from '../syntax/parser';
 import type { ItemNode, LineNode } from '../syntax/tree';
 import type { Position, Range } from '../types';
 import { ITEM_COLUMN } from './format';
-import { deviceSets, supportOfDevice, SUPPORT_PRESSURE_FIELDS, SUPPORT_PRESSURES, type NoninvasiveSupport } from '../analysis/noninvasive-support';
+import { DEVICE_SETTING_FIELDS, deviceSets, supportOfDevice, SUPPORT_PRESSURES, type NoninvasiveSupport } from '../analysis/noninvasive-support';
 import { NONE } from '../util/lists';
 import { isValidPosition, itemAt, lineAt, lineRange, timepointOfLine } from './locate';
 import { OSCILLATION_MODE } from '../physiology/mechanics';
@@ -316,8 +316,8 @@ function shorthandSnippet(section: SectionId, replace: Range): CompletionInfo {
   };
 }
 
-/** The oxygen-line fields some devices do not take (`deviceSets`): the flow, and the pressures of the supports. */
-const SETTINGS_BY_DEVICE: readonly string[] = ['o2_flow', ...SUPPORT_PRESSURE_FIELDS];
+/** The oxygen-line fields some devices do not take (`deviceSets`): the flow, and the pressures of the supports (an FiO2 is offered beside any, see below). */
+const SETTINGS_BY_DEVICE: readonly string[] = DEVICE_SETTING_FIELDS.filter((id) => id !== 'fio2');
 
 /**
  * Oxygen-line fields that do not go with a device, by the one table of `deviceSets`: the pressures
