@@ -3,8 +3,8 @@ import { readdirSync, readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { renderCheckDocs } from '../server/src/core/checks/docs';
 import { CHECKS, docAnchor } from '../server/src/core/checks/registry';
-import { FIELD_TABLE_START, renderFieldTable, replaceBetween, withGeneratedTables } from '../server/src/core/fields/docs';
-import { FIELDS, fieldFor, keysInSection } from '../server/src/core/fields/registry';
+import { FIELD_TABLE_START, HYPHENS_RULE, renderFieldTable, replaceBetween, withGeneratedTables } from '../server/src/core/fields/docs';
+import { FIELDS, fieldFor, isHyphenSpelling, keysInSection } from '../server/src/core/fields/registry';
 import { SECTIONS } from '../server/src/core/fields/sections';
 import { HB_MMOL_PER_L, UNITS } from '../server/src/core/fields/units';
 import { checkNote } from '../server/src/core/check-note';
@@ -41,7 +41,11 @@ describe('check documentation', () => {
       if (u.id === HB_MMOL_PER_L && spelling === u.id) continue; // internal: haemoglobin's mmol/L is written `mmol/L`, listed
       expect(table, spelling).toContain(`\`${spelling.toLowerCase()}\``);
     }
-    for (const f of FIELDS) for (const word of Object.keys(f.words ?? {})) expect(table, word).toMatch(new RegExp(`(?:[:,]|\\(or) ${word}[,) |]`));
+    // A name joined by hyphens (`nasal-cannula`) is said by the rule, once, beside its field's words.
+    for (const f of FIELDS) for (const word of Object.keys(f.words ?? {})) {
+      if (isHyphenSpelling(word)) expect(table, word).toContain(HYPHENS_RULE.toLowerCase());
+      else expect(table, word).toMatch(new RegExp(`(?:[:,]|\\(or) ${word}[,) |]`));
+    }
   });
 
   it('the example note of grammar/README.md reads without a syntax, key or unit finding, and is in the formatter\'s layout', () => {

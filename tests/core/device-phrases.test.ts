@@ -6,6 +6,7 @@
 // was written.
 import { describe, expect, it } from 'vitest';
 import { checkNote } from '../../server/src/core';
+import { formatNote } from '../../server/src/core/service';
 
 const gas = 'abg 7.40/40/80/24';
 
@@ -78,5 +79,53 @@ describe('oxygen devices of several words', () => {
     expect(r.codes).toEqual([]);
     expect(r.deviceWord ?? r.device).toBe('mask');
     expect(r.flow).toBe(6);
+  });
+
+  // A device's name of several words may have its words joined by hyphens instead of blanks, as
+  // clinicians write them (`nasal-cannula`, `face-mask`): each such word is one word to the lexer,
+  // and it reads as the device the spaced name reads as. Before, `nasal-cannula` was an unknown key
+  // (PN201, offered as `cannula`) and its flow was lost.
+  it.each([
+    ['oxygen nasal-cannula 2 L/min', 'cannula', 2],
+    ['oxygen Nasal-Cannula 2', 'cannula', 2],
+    ['oxygen nasal-prongs 3 L/min', 'cannula', 3],
+    ['oxygen face-mask 6 L/min', 'mask', 6],
+    ['oxygen simple-face-mask 6 L/min', 'mask', 6],
+    ['oxygen simple face-mask 6 L/min', 'mask', 6],
+    ['oxygen reservoir-mask 15 L/min', 'reservoir', 15],
+    ['oxygen non-rebreather-mask 15 L/min', 'reservoir', 15],
+    ['oxygen nasal-high-flow 40 L/min, fio2 0.5', 'hfnc', 40],
+    ['oxygen nasal high-flow 40 L/min, fio2 0.5', 'hfnc', 40],
+    ['oxygen venturi-mask 8 L/min 28 %', 'venturi', 8],
+    ['oxygen device nasal-cannula, flow 2 L/min', 'cannula', 2],
+    ['oxygen HFNC 40 L/min, fio2 0.5', 'hfnc', 40],
+  ])('`%s`, its words joined by hyphens, is the device %s with its flow', (line, device, flow) => {
+    const r = readAt(line);
+    expect(r.codes).toEqual([]);
+    expect(r.deviceWord ?? r.device).toBe(device);
+    expect(r.flow).toBe(flow);
+  });
+
+  it('reads room air joined by a hyphen as room air', () => {
+    const r = readAt('oxygen room-air');
+    expect(r.codes).toEqual([]);
+    expect(r.deviceWord ?? r.device).toBe('room air');
+  });
+
+  it('gives a hyphen-joined name the FiO2 estimate of the spaced one', () => {
+    expect(readAt('oxygen nasal-cannula 2 L/min').fio2Estimated).toBe(readAt('oxygen nasal cannula 2 L/min').fio2Estimated);
+    expect(readAt('oxygen simple-face-mask 6 L/min').fio2Estimated).toBe(readAt('oxygen simple face mask 6 L/min').fio2Estimated);
+  });
+
+  it('still offers the device for a hyphen-joined name with a word misspelt', () => {
+    const r = checkNote(`@ 08:00\noxygen nasal-canula 2 L/min\n${gas}`);
+    const f = r.findings.filter((x) => x.code === 'PN201');
+    expect(f).toHaveLength(1);
+    expect(JSON.stringify(f[0]?.fixes ?? [])).toContain('cannula');
+  });
+
+  it('keeps a hyphen-joined name as written when the note is formatted', () => {
+    const text = `@ 08:00\noxygen nasal-cannula 2 L/min\n${gas}`;
+    expect(formatNote(text)).toContain('oxygen    nasal-cannula 2 L/min');
   });
 });

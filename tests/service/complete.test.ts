@@ -373,6 +373,19 @@ describe('while a value of several parts is typed', () => {
     expect(labels('oxygen nasal |')).toContain('flow');
   });
 
+  it('offers the names joined by hyphens once a hyphen is typed (`nasal-c|`), and only the spaced names otherwise', () => {
+    expect(labels('oxygen nasal-c|')).toEqual(['nasal-cannula']);
+    expect(complete('oxygen nasal-c|')[0]?.detail).toBe('Oxygen device: cannula');
+    expect(labels('oxygen device face-|')).toEqual(['face-mask']);
+    expect(labels('oxygen non-rebreather-|')).toEqual(['non-rebreather-mask']);
+    const applied = applyEdits('oxygen nasal-ca 2 L/min', [{ range: complete('oxygen nasal-ca|')[0]!.replace!, newText: 'nasal-cannula' }]);
+    expect(checkNote(applied).findings.map((f) => f.code)).toEqual([]);
+    // The spaced lead offers the row's names, not every mix of blanks and hyphens.
+    expect(labels('oxygen simple f|')).toEqual(['simple face mask']);
+    expect(labels('oxygen nasal h|')).toEqual(['nasal high flow']);
+    expect(labels('oxygen |')).toEqual(['room air', 'cannula', 'mask', 'venturi', 'reservoir', 'hfnc', 'niv', 'cpap']);
+  });
+
   it('completes a device of two words after its key too (`device room a|`, also after other items)', () => {
     for (const marked of ['oxygen device room |', 'oxygen device room a|', 'oxygen fio2 0.21, device ROOM  A|']) {
       const items = complete(marked);

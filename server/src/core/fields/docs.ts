@@ -4,7 +4,7 @@
  */
 import { VT_USUAL_MIN_ML_PER_KG } from '../analysis/bounds';
 import { displayUnit } from '../analysis/read-value';
-import { FIELDS, loincCodesOf, loincFor, type FieldDef, type LoincCode } from './registry';
+import { FIELDS, isHyphenSpelling, loincCodesOf, loincFor, type FieldDef, type LoincCode } from './registry';
 import { SECTIONS } from './sections';
 import { MODE_FAMILIES, modesOfFamilies, type ModeFamily } from './modes';
 import { UNITS } from './units';
@@ -29,14 +29,23 @@ function bounds(b: { min?: number; max?: number } | undefined): string {
  */
 function wordsText(field: FieldDef): string {
   const others = new Map<string, string[]>();
+  let hyphens = false;
   for (const [written, word] of Object.entries(field.words ?? {})) {
+    // The names joined by hyphens are said once, as a rule, after the list.
+    if (isHyphenSpelling(written)) {
+      hyphens = true;
+      continue;
+    }
     const list = others.get(word) ?? [];
     if (written !== word.toLowerCase()) list.push(written);
     others.set(word, list);
   }
   const words = [...others].map(([word, list]) => (list.length > 0 ? `${word} (or ${list.join(', ')})` : word));
-  return `word: ${words.join(', ')}${field.openWords ? ', or any word (not a number)' : ''}`;
+  return `word: ${words.join(', ')}${field.openWords ? ', or any word (not a number)' : ''}${hyphens ? `; ${HYPHENS_RULE}` : ''}`;
 }
+
+/** What the table says of the names of several words of a word field (`isHyphenSpelling`). */
+export const HYPHENS_RULE = 'a name of several words also with its words joined by hyphens (nasal-cannula, simple face-mask)';
 
 function loincCell(code: LoincCode): string {
   return `${code.code}${code.fromMemory ? ' (from memory)' : ''}`;

@@ -222,8 +222,40 @@ function oneShape(f: FieldDef): FieldDef {
   return {
     id: f.id, label: f.label, short: f.short, description: f.description, sections: f.sections, aliases: f.aliases, kind: f.kind,
     dimension: f.dimension, unit: f.unit, units: f.units, bare: f.bare, hard: f.hard && oneBounds(f.hard), soft: f.soft && oneBounds(f.soft), doubt: f.doubt && oneBounds(f.doubt),
-    boundsSource: f.boundsSource, loinc: f.loinc, loincBySection: f.loincBySection, loincByKey: f.loincByKey, words: f.words, openWords: f.openWords, reading: f.reading, measuredIn: f.measuredIn, setIn: f.setIn, decimals: f.decimals,
+    boundsSource: f.boundsSource, loinc: f.loinc, loincBySection: f.loincBySection, loincByKey: f.loincByKey, words: f.words && withHyphens(f.words), openWords: f.openWords, reading: f.reading, measuredIn: f.measuredIn, setIn: f.setIn, decimals: f.decimals,
   };
+}
+
+/**
+ * The spellings of a word field's names of several words with their words joined by hyphens
+ * instead of blanks, wholly or in part (`nasal-cannula`, `simple face-mask`, `non-rebreather-mask`),
+ * each made once from the rows: a word with hyphens is one word to the lexer, and clinicians
+ * write device names so. Filled by `withHyphens`; the docs and completion leave them out
+ * (`isHyphenSpelling`), since they follow from the rule the spec states.
+ */
+const HYPHEN_SPELLINGS = new Set<string>();
+
+/** `words` with the hyphen-joined spellings of its names of several words added, each read as the name is. */
+function withHyphens(words: Readonly<Record<string, string>>): Readonly<Record<string, string>> {
+  const out: Record<string, string> = { ...words };
+  for (const [written, word] of Object.entries(words)) {
+    const parts = written.split(' ');
+    const gaps = parts.length - 1;
+    // Every choice of blank or hyphen for each gap but all blanks (the row's own spelling).
+    for (let mask = 1; mask < 1 << gaps; mask++) {
+      let joined = parts[0]!;
+      for (let g = 0; g < gaps; g++) joined += ((mask >> g) & 1 ? '-' : ' ') + parts[g + 1]!;
+      if (Object.hasOwn(out, joined)) continue;
+      out[joined] = word;
+      HYPHEN_SPELLINGS.add(joined);
+    }
+  }
+  return out;
+}
+
+/** Whether `spelling` (lower case) is one `withHyphens` made, not one a row writes. */
+export function isHyphenSpelling(spelling: string): boolean {
+  return HYPHEN_SPELLINGS.has(spelling);
 }
 
 /** Bounds of one shape too (`min` and `max` both present). */

@@ -19,7 +19,7 @@
  */
 import type { NoteResult } from '../check-note';
 import { deviceOfLine, displayUnit } from '../analysis/read-value';
-import { fieldFor, fieldsInSection, type FieldDef } from '../fields/registry';
+import { fieldFor, fieldsInSection, isHyphenSpelling, type FieldDef } from '../fields/registry';
 import { SECTIONS, sectionByName, type SectionDef, type SectionId } from '../fields/sections';
 import { squeezeBlanks } from '../syntax/blanks';
 import { chunkLine, isBlank, leadingNumber } from '../syntax/lexer';
@@ -110,7 +110,7 @@ function completionsOnLine(node: LineNode, position: Position, firstUnit: FirstU
   const afterComma = before.slice(last.span.end).includes(',');
   if (chunks.length === 1) {
     if (afterNumber) return [];
-    if (section.id === 'oxygen') return narrow(wordCompletions(fieldFor('oxygen', 'device'), replace), typed);
+    if (section.id === 'oxygen') return narrow(deviceCompletions(typed, replace), typed);
     const shorthand = section.id === 'abg' || section.id === 'vbg' ? [shorthandSnippet(section.id, replace)] : [];
     return narrow([...keyCompletions(section.id, used, replace), ...shorthand], typed);
   }
@@ -148,7 +148,7 @@ function completionsOnLine(node: LineNode, position: Position, firstUnit: FirstU
   }
   if (!item.value) {
     if (!field) return [];
-    if (field.kind === 'word') return narrow(wordCompletions(field, replace), typed);
+    if (field.kind === 'word') return narrow(field.id === 'device' ? deviceCompletions(typed, replace) : wordCompletions(field, replace), typed);
     return [];
   }
   if (item.unit === null && item.value.kind !== 'word' && !(field && item.number !== null && isFraction(field, item.number))) {
@@ -249,7 +249,7 @@ function leadDeviceCompletions(text: string, leadStart: number, ch: number, repl
   // next as well as the rest of a longer name, so the usual offers stand.
   if (lead.endsWith(' ') && words[lead.trimEnd()] !== undefined) return null;
   const found = Object.keys(words)
-    .filter((w) => w.includes(' ') && w.startsWith(lead))
+    .filter((w) => w.includes(' ') && w.startsWith(lead) && !isHyphenSpelling(w))
     .map((w): CompletionInfo => ({ label: w, kind: 'word', detail: w === words[w] ? field!.label : `${field!.label}: ${words[w]}`, insertText: w, replace }));
   return found.length > 0 ? found : null;
 }
@@ -387,6 +387,20 @@ function keyCompletions(section: SectionId, used: ReadonlySet<string>, replace: 
   const rest = leading.length === 0 ? fields : fields.filter((f) => !leading.includes(f));
   return [...leading, ...rest.filter((f) => f.sections[0] === section), ...rest.filter((f) => f.sections[0] !== section)]
     .map((f) => ({ label: f.aliases[0] ?? f.id, kind: 'key' as const, detail: keyDetail(f), documentation: f.description, insertText: f.aliases[0] ?? f.id, replace }));
+}
+
+/**
+ * The devices offered for the word being typed: each device once, by its usual name; once a
+ * hyphen is typed (`nasal-c`), the spellings with a hyphen instead (`nasal-cannula`, the name of
+ * several words joined by hyphens, `high-flow`), each with the device it is.
+ */
+function deviceCompletions(typed: string, replace: Range): CompletionInfo[] {
+  const field = fieldFor('oxygen', 'device');
+  if (!typed.includes('-') || !field?.words) return wordCompletions(field, replace);
+  const words = field.words;
+  return Object.keys(words)
+    .filter((w) => w.includes('-') && !w.includes(' '))
+    .map((w): CompletionInfo => ({ label: w, kind: 'word', detail: `${field.label}: ${words[w]}`, insertText: w, replace }));
 }
 
 function wordCompletions(field: FieldDef | undefined, replace: Range): CompletionInfo[] {
