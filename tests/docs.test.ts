@@ -432,6 +432,13 @@ const SPEC_LINES: Readonly<Record<string, readonly string[] | { readonly on: str
   'oxygen fio2 0.3': { on: '@ 08:00\noxygen cannula 2\n@ 10:00\noxygen fio2 0.3', codes: [] },
   'oxygen ipap 14, epap 6': { on: '@ 08:00\noxygen cannula 2\n@ 10:00\noxygen ipap 14, epap 6', codes: [] },
   'oxygen canula, flow 3': ['PN201'],
+  // The same at one timepoint: a second line without a device updates the first (a setting on both is PN206).
+  'oxygen hfnc 50 L/min': [],
+  'oxygen fio2 0.6': { on: '@ 08:00\noxygen hfnc 50 L/min\noxygen fio2 0.6', codes: [] },
+  'oxygen ipap 16, epap 8': { on: '@ 08:00\noxygen ipap 14, epap 6\n@ 10:00\noxygen ipap 16, epap 8\noxygen fio2 0.4', codes: [] },
+  'oxygen cannula 2': [],
+  'oxygen flow 3': { on: '@ 08:00\noxygen cannula 2\noxygen flow 3', codes: ['PN206'] },
+  'oxygen niv fio2 0.4': { on: '@ 08:00\noxygen niv ipap 14, epap 6\noxygen niv fio2 0.4', codes: ['PN206'] },
   // NIV or CPAP by its pressures alone, updated as the device named would be.
   'oxygen level 8': [],
   'oxygen level 10': { on: '@ 08:00\noxygen level 8\n@ 10:00\noxygen level 10', codes: [] },

@@ -187,10 +187,12 @@ describe('NIV or CPAP written by its pressures alone: the support counts as the 
     expect(inForce(text, 1, 'cpap_level')).toEqual([null, null, null]);
   });
 
-  it('lines of one timepoint: unchanged, the later replaces the earlier', () => {
+  it('lines of one timepoint: the later updates the earlier, as across timepoints (the setting written twice is PN206)', () => {
     const one = '@ day 1 08:00\noxygen ipap 14, epap 6\noxygen ipap 16\n';
-    expect(inForce(one, 0, 'epap')).toEqual([null, null, null]);
-    expect(inForce('@ day 1 08:00\noxygen level 8\noxygen fio2 0.4\n', 0, 'cpap_level')).toEqual([null, null, null]);
+    expect(inForce(one, 0, 'epap')).toEqual([6, 'here', 1]);
+    expect(inForce(one, 0, 'ipap')).toEqual([16, 'here', 2]);
+    expect(codes(one, 'PN206').map((f) => f.range.start.line)).toEqual([2]);
+    expect(inForce('@ day 1 08:00\noxygen level 8\noxygen fio2 0.4\n', 0, 'cpap_level')).toEqual([8, 'here', 1]);
   });
 
   it('hover, show and the exports give the carried pressure and no device', async () => {
@@ -238,9 +240,10 @@ describe('any other device-less oxygen line replaces the therapy, as before', ()
     expect(inForce(second('oxygen hfnc 50, fio2 0.6', 'oxygen canula 3'), 1, 'device')).toEqual([null, null, null]);
   });
 
-  it('lines of one timepoint: as before (the second replaces, but for a `fio2` beside a device that gives one)', () => {
-    const one = '@ day 1 08:00\noxygen hfnc 50\noxygen fio2 0.6\n';
+  it('lines of one timepoint: a second line that names no device replaces where it is no update (a key the device does not take)', () => {
+    const one = '@ day 1 08:00\noxygen cannula 2\noxygen fio2 0.3\n';
     expect(inForce(one, 0, 'device')).toEqual([null, null, null]);
+    expect(inForce('@ day 1 08:00\noxygen niv ipap 14, epap 6\noxygen level 8\n', 0, 'epap')).toEqual([null, null, null]);
     const paired = '@ day 1 08:00\noxygen venturi 28\noxygen fio2 0.28\n';
     expect(inForce(paired, 0, 'device')).toEqual(['venturi', 'here', 1]);
   });
@@ -257,6 +260,63 @@ describe('any other device-less oxygen line replaces the therapy, as before', ()
     expect(inForce(text, 1, 'device')).toEqual(['venturi', 'here', 4]);
     expect(inForce(text, 1, 'fio2')).toEqual([0.35, 'here', 3]);
     expect(codes(text, 'PN206')).toHaveLength(1);
+  });
+});
+
+// Lines of one timepoint describe one moment. A later oxygen line there that names no device and
+// writes only settings of the device in force updates it, as at a later timepoint: before, it
+// replaced the line above it whole (`oxygen hfnc 50 L/min` then `oxygen fio2 0.6` lost the device
+// and its flow), and NIV by its pressures restated in full at a timepoint (every value it held of
+// that timepoint) was replaced whole by a further line there (`oxygen fio2 0.4` lost both pressures).
+describe('a later oxygen line of the same timepoint that names no device updates the therapy stated there', () => {
+  it('high flow, then its FiO2 on a line of its own: the device and flow stay, the FiO2 is used for P/F', () => {
+    const text = `${PATIENT}@ day 1 08:00\noxygen hfnc 50 L/min\noxygen fio2 0.6\nabg 7.40/40/90/24\n`;
+    expect(inForce(text, 0, 'device')).toEqual(['hfnc', 'here', 2]);
+    expect(inForce(text, 0, 'o2_flow')).toEqual([50, 'here', 2]);
+    expect(inForce(text, 0, 'fio2')).toEqual([0.6, 'here', 3]);
+    // P/F = PaO2 ÷ FiO2 (common practice, no source): 90 / 0.6 = 150.
+    expect(derived(text, 'pf_ratio')?.value).toBeCloseTo(150, 6);
+    expect(codes(text, 'PN206')).toEqual([]);
+  });
+
+  it('NIV named, then a further line of its FiO2: the pressures stay', () => {
+    const text = '@ day 1 08:00\noxygen niv ipap 14, epap 6\noxygen fio2 0.4\n';
+    expect(inForce(text, 0, 'device')).toEqual(['niv', 'here', 1]);
+    expect(inForce(text, 0, 'ipap')).toEqual([14, 'here', 1]);
+    expect(inForce(text, 0, 'epap')).toEqual([6, 'here', 1]);
+    expect(inForce(text, 0, 'fio2')).toEqual([0.4, 'here', 2]);
+  });
+
+  it('NIV by its pressures restated in full at a later timepoint, then its FiO2 there: the pressures stay', () => {
+    const text = '@ day 1 08:00\noxygen ipap 14, epap 6\n@ day 1 10:00\noxygen ipap 16, epap 8\noxygen fio2 0.4\n';
+    expect(inForce(text, 1, 'ipap')).toEqual([16, 'here', 3]);
+    expect(inForce(text, 1, 'epap')).toEqual([8, 'here', 3]);
+    expect(inForce(text, 1, 'fio2')).toEqual([0.4, 'here', 4]);
+    expect(inForce(text, 1, 'device')).toEqual([null, null, null]);
+  });
+
+  it('NIV by its pressures at one timepoint, then its FiO2 there: the pressures stay, no device is made up', () => {
+    const text = '@ day 1 08:00\noxygen ipap 14, epap 6\noxygen fio2 0.4\n';
+    expect([inForce(text, 0, 'ipap'), inForce(text, 0, 'epap'), inForce(text, 0, 'device')]).toEqual([[14, 'here', 1], [6, 'here', 1], [null, null, null]]);
+  });
+
+  it('a cannula, then a new flow at the same timepoint: the cannula stays at the later flow (stated twice, PN206)', () => {
+    const text = '@ day 1 08:00\noxygen cannula 2\noxygen flow 3\n';
+    expect(inForce(text, 0, 'device')).toEqual(['cannula', 'here', 1]);
+    expect(inForce(text, 0, 'o2_flow')).toEqual([3, 'here', 2]);
+    expect(codes(text, 'PN206').map((f) => f.range.start.line)).toEqual([2]);
+  });
+
+  it('a line naming a device there still replaces, as at a later timepoint (the device stated twice, PN206)', () => {
+    const text = '@ day 1 08:00\noxygen niv ipap 14, epap 6\noxygen niv fio2 0.4\n';
+    expect(inForce(text, 0, 'ipap')).toEqual([null, null, null]);
+    expect(codes(text, 'PN206')).toHaveLength(1);
+  });
+
+  it('the update carries on to later timepoints as the one line would', () => {
+    const text = '@ day 1 08:00\noxygen niv ipap 14, epap 6\noxygen fio2 0.4\n@ day 1 10:00\noxygen ipap 16\n';
+    expect([inForce(text, 1, 'device'), inForce(text, 1, 'epap'), inForce(text, 1, 'fio2'), inForce(text, 1, 'ipap')])
+      .toEqual([['niv', 'carried', 1], [6, 'carried', 1], [0.4, 'carried', 2], [16, 'here', 4]]);
   });
 });
 
@@ -313,7 +373,7 @@ describe('what reads the oxygen in force', () => {
     const { result, position } = noteAt(CANNULA.replace('flow 4 L/min', 'flow 4 L/m|in'));
     const hover = hoverAt(result, position)?.markdown ?? '';
     expect(hover).toContain('Value: **4.0 L/min**');
-    expect(hover).toContain('restates only settings of the device in force, or of NIV or CPAP written by its pressures, which updates those');
+    expect(hover).toContain('restates only settings of the device in force, or of NIV or CPAP written by its pressures, at a later timepoint or below it at its own, which updates those');
     const tp = noteAt(CANNULA.replace('@ day 1 10:00', '@ day 1 10:0|0'));
     expect(hoverAt(tp.result, tp.position)?.markdown ?? '').toMatch(/cannula[^\n]*carried from day 1 08:00, line 2|carried from day 1 08:00, line 2[^\n]*cannula/);
   });

@@ -61,9 +61,9 @@ export const DEVICE_SETTING_FIELDS: readonly string[] = ['o2_flow', 'fio2', ...S
 
 /**
  * Whether `fieldId` is a setting of the oxygen device `device` (a canonical device word): what the
- * device is set to, and what an oxygen line that names no device may restate of it at a later
- * timepoint (the timeline's `updatedDevice`: `oxygen flow 4` after `oxygen cannula 2` is the
- * cannula at 4 L/min). The one table of it:
+ * device is set to, and what a later oxygen line that names no device may restate of it, at a later
+ * timepoint or below it at its own (the timeline's `updatedDevice`: `oxygen flow 4` after `oxygen
+ * cannula 2` is the cannula at 4 L/min). The one table of it:
  * - a flow (`o2_flow`) for every device but room air, which takes no oxygen;
  * - an FiO2 for the devices that set one: a Venturi mask (its entrainment valve gives a fixed
  *   fraction, which is why a number after `venturi` may be read as it), high flow (the blender of

@@ -8,7 +8,8 @@
  * line with a `fio2` and no device beside one whose device gives the FiO2, `venturi 28`: the two
  * hold as one, see `pairsAcrossLines`; and for a line at a later timepoint that names no device
  * and writes only settings of the device in force, `oxygen flow 4` after `oxygen cannula 2`, which
- * updates that therapy: the device and the settings it does not restate carry, see `updatedDevice`;
+ * updates that therapy (as does such a line below the device's at its own timepoint): the device
+ * and the settings it does not restate carry, see `updatedDevice`;
  * NIV or CPAP written by its pressures alone counts as that device, none being made up);
  * a `vent` line that states a setting ends oxygen-line therapy (one of readings only ends nothing;
  * under NIV or CPAP its tidal volume is the measured one, of its timepoint) and updates the ventilator settings it restates,
@@ -946,7 +947,7 @@ function apply(section: SectionId, stated: (StatedValue | undefined)[], from: nu
     case 'units': { const g = firstOf(stated, from, to, 'gas_unit'); if (g?.word) state.gasUnit = new HeldValue(g, tp, label, time); break; }
     case 'oxygen': {
       // A later line that restates settings of the device in force (or of NIV or CPAP by its pressures) updates it; any other replaces it.
-      const device = updatedDevice(state.oxygen, stated, from, to, tp, items);
+      const device = updatedDevice(state.oxygen, stated, from, to, items);
       state.oxygen = device === null ? hold(EMPTY, stated, from, to, tp, label, time) : holdUpdate(state.oxygen, device, stated, from, to, tp, label, time);
       state.vent = EMPTY;
       break;
@@ -992,13 +993,14 @@ function apply(section: SectionId, stated: (StatedValue | undefined)[], from: nu
 
 /**
  * The device of the oxygen line in force (`oxygen`, held) that the oxygen line `stated[from, to)`
- * (its `items`) at timepoint `tp` updates rather than replaces; null where it replaces it. With no
+ * (its `items`) updates rather than replaces; null where it replaces it. With no
  * device named, NIV or CPAP written by its pressures alone (`oxygen ipap 14, epap 6`: the one rule,
  * `noninvasiveSupport`) counts as that device, and its name is returned (`niv`, `cpap`, as
  * `deviceSets` names them) though the held map keeps no device (none was written). It updates it
- * where the device was named at an earlier timepoint, or, for a support by its pressures, where the
- * line in force holds a value of an earlier timepoint (lines of one timepoint pair or replace as
- * they always did: `pairsAcrossLines`), is a device read (a word known), and the line names no
+ * at a later timepoint and at the one where the device was written alike (lines of one timepoint
+ * describe one moment: `oxygen hfnc 50 L/min` then `oxygen fio2 0.6` is one therapy; a setting
+ * written twice there is PN206, as any value is; a `fio2` beside a device that gives one is paired
+ * before this is asked: `pairsAcrossLines`) where the device is read (a word known), and the line names no
  * device, reads every item it writes (a word it does not read may be a device misspelt), and writes
  * at least one value, each a setting of that device (`deviceSets`: `oxygen flow 4` after `oxygen
  * cannula 2`, `oxygen fio2 0.4` after high flow, `oxygen ipap 16` after NIV, named or by its
@@ -1008,17 +1010,10 @@ function apply(section: SectionId, stated: (StatedValue | undefined)[], from: nu
  * line after room air (it takes no setting), and any line where no device or support is in force
  * (under ventilation, after a line of only a flow or an FiO2, or nothing).
  */
-function updatedDevice(oxygen: HeldMap, stated: readonly (StatedValue | undefined)[], from: number, to: number, tp: number, items: readonly ItemNode[]): string | null {
+function updatedDevice(oxygen: HeldMap, stated: readonly (StatedValue | undefined)[], from: number, to: number, items: readonly ItemNode[]): string | null {
   if (to === from || oxygen.size === 0) return null;
   const held = oxygen.get('device');
-  let device: string | null;
-  if (held !== undefined) {
-    if (held.timepoint === tp || !held.stated.usable) return null;
-    device = held.stated.word;
-  } else {
-    device = noninvasiveSupport(null, oxygen);
-    if (device === null || !heldBefore(oxygen, tp)) return null;
-  }
+  const device = held !== undefined ? (held.stated.usable ? held.stated.word : null) : noninvasiveSupport(null, oxygen);
   if (device === null) return null;
   for (let k = 0; k < items.length; k++) {
     const item = items[k]!;
@@ -1026,16 +1021,6 @@ function updatedDevice(oxygen: HeldMap, stated: readonly (StatedValue | undefine
   }
   for (let k = from; k < to; k++) if (!deviceSets(device, stated[k]!.fieldId)) return null;
   return device;
-}
-
-/**
- * Whether the oxygen held (`oxygen`) holds a value stated before timepoint `tp`: the line in force
- * was written at an earlier timepoint (a line of this one replaces what came before whole, so all
- * it holds is of this timepoint, but for what a line here that updated it did not restate).
- */
-function heldBefore(oxygen: HeldMap, tp: number): boolean {
-  for (const held of oxygen.values()) if (held.timepoint !== tp) return true;
-  return false;
 }
 
 /**

@@ -35,7 +35,7 @@ export const SECTIONS: readonly SectionDef[] = [
   { id: 'place', aliases: ['site'], kind: 'header', description: 'Altitude or barometric pressure; may be restated at a later timepoint when the patient moves.' },
   { id: 'units', aliases: [], kind: 'header', description: 'Default unit for gas pressures written without one (`gas mmHg` or `gas kPa`).' },
   { id: 'vitals', aliases: ['obs', 'vital'], kind: 'measure', description: 'Bedside observations at this timepoint.' },
-  { id: 'oxygen', aliases: ['o2'], kind: 'setting', description: 'Oxygen therapy: the device first, then its flow and settings. Replaces the previous oxygen line and ends ventilation; at a later timepoint, a line that names no device and writes only settings of the device in force (or of NIV or CPAP written by its pressures) updates that therapy instead.' },
+  { id: 'oxygen', aliases: ['o2'], kind: 'setting', description: 'Oxygen therapy: the device first, then its flow and settings. Replaces the previous oxygen line and ends ventilation; a later line that names no device and writes only settings of the device in force (or of NIV or CPAP written by its pressures), at a later timepoint or at the same one, updates that therapy instead.' },
   { id: 'abg', aliases: ['art', 'arterial'], kind: 'measure', description: 'Arterial blood gas; shorthand pH/PaCO2/PaO2/HCO3 allowed.' },
   { id: 'vbg', aliases: ['venous'], kind: 'measure', description: 'Venous blood gas; shorthand pH/PvCO2/PvO2/HCO3 allowed.' },
   { id: 'labs', aliases: ['lab', 'chem'], kind: 'measure', description: 'Laboratory values at this timepoint.' },
