@@ -438,6 +438,8 @@ const SPEC_LINES: Readonly<Record<string, readonly string[] | { readonly on: str
   'oxygen ipap 16, epap 8': { on: '@ 08:00\noxygen ipap 14, epap 6\n@ 10:00\noxygen ipap 16, epap 8\noxygen fio2 0.4', codes: [] },
   'oxygen cannula 2': [],
   'oxygen flow 3': { on: '@ 08:00\noxygen cannula 2\noxygen flow 3', codes: ['PN206'] },
+  // Under NIV a vent line of the support's readings: the measured volume is asked for there only.
+  'vent peak 16': { on: '@ 08:00\noxygen niv ipap 14, epap 6, fio2 0.4\nvent peak 16', codes: [] },
   'oxygen niv fio2 0.4': { on: '@ 08:00\noxygen niv ipap 14, epap 6\noxygen niv fio2 0.4', codes: ['PN206'] },
   // NIV or CPAP by its pressures alone, updated as the device named would be.
   'oxygen level 8': [],

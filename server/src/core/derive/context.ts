@@ -432,6 +432,13 @@ export class DeriveContext {
     return id === null ? null : this.field(id, id === 'epap' ? 'EPAP' : 'CPAP');
   }
 
+  /** Whether a vent line was read at this timepoint (any of its values, usable or not). */
+  ventLineHere(): boolean {
+    const stated = this.timepoint.stated;
+    for (let i = 0; i < stated.length; i++) if (stated[i]!.section === 'vent') return true;
+    return false;
+  }
+
   /** The non-invasive support of the oxygen line in force (`noninvasiveSupport`), or null. */
   noninvasiveSupport(): NoninvasiveSupport | null {
     return noninvasiveSupport(this.word('device')?.word ?? null, this.timepoint.values);

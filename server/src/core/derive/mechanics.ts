@@ -47,10 +47,14 @@ export const minuteVentilation = defineDerived({
 /**
  * Whether a missing tidal volume is asked for rather than the value left unmentioned: where the mode
  * in force measures it (PS, PC: one of an earlier timepoint is not carried), but not in HFOV, where
- * what is worked out from breaths is not (`oscillation`).
+ * what is worked out from breaths is not (`oscillation`). With no mode, under NIV or CPAP of an
+ * oxygen line, only where this timepoint writes a vent line (the support's readings, `vent peak 16`):
+ * many notes on NIV never record a volume, and asking at every gas would repeat one line at each; a
+ * rate among the vital signs is charted on any support and asks for none (our convention).
  */
 function askedVolume(c: DeriveContext): boolean {
-  return c.measuredByMode('vt') && c.oscillation() === null;
+  if (!c.measuredByMode('vt') || c.oscillation() !== null) return false;
+  return c.word('mode') !== null || c.ventLineHere();
 }
 
 /** Age (years) from which the ARDS Network's predicted body weight is worked out: the trial's adults (ARDS Network 2000, from memory; the equation is for adults only, read in the abstract of BMC Pulm Med 2017, doi 10.1186/s12890-017-0427-1). */
