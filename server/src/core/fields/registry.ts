@@ -227,15 +227,12 @@ function oneShape(f: FieldDef): FieldDef {
 }
 
 /**
- * The spellings of a word field's names of several words with their words joined by hyphens
+ * `words` with the spellings of its names of several words with their words joined by hyphens
  * instead of blanks, wholly or in part (`nasal-cannula`, `simple face-mask`, `non-rebreather-mask`),
- * each made once from the rows: a word with hyphens is one word to the lexer, and clinicians
- * write device names so. Filled by `withHyphens`; the docs and completion leave them out
- * (`isHyphenSpelling`), since they follow from the rule the spec states.
+ * each read as the name is: a word with hyphens is one word to the lexer, and clinicians write
+ * device names so. The docs and completion leave them out (`isHyphenSpelling`), since they follow
+ * from the rule the spec states.
  */
-const HYPHEN_SPELLINGS = new Set<string>();
-
-/** `words` with the hyphen-joined spellings of its names of several words added, each read as the name is. */
 function withHyphens(words: Readonly<Record<string, string>>): Readonly<Record<string, string>> {
   const out: Record<string, string> = { ...words };
   for (const [written, word] of Object.entries(words)) {
@@ -245,17 +242,10 @@ function withHyphens(words: Readonly<Record<string, string>>): Readonly<Record<s
     for (let mask = 1; mask < 1 << gaps; mask++) {
       let joined = parts[0]!;
       for (let g = 0; g < gaps; g++) joined += ((mask >> g) & 1 ? '-' : ' ') + parts[g + 1]!;
-      if (Object.hasOwn(out, joined)) continue;
-      out[joined] = word;
-      HYPHEN_SPELLINGS.add(joined);
+      if (!Object.hasOwn(out, joined)) out[joined] = word;
     }
   }
   return out;
-}
-
-/** Whether `spelling` (lower case) is one `withHyphens` made, not one a row writes. */
-export function isHyphenSpelling(spelling: string): boolean {
-  return HYPHEN_SPELLINGS.has(spelling);
 }
 
 /** Bounds of one shape too (`min` and `max` both present). */
@@ -264,6 +254,14 @@ function oneBounds(b: Bounds): Bounds {
 }
 
 export const FIELDS: readonly FieldDef[] = ROWS.map(oneShape);
+
+/** The spellings `withHyphens` made, those of no row (lower case). */
+const HYPHEN_SPELLINGS: ReadonlySet<string> = new Set(FIELDS.flatMap((f, i) => Object.keys(f.words ?? {}).filter((w) => !Object.hasOwn(ROWS[i]!.words ?? {}, w))));
+
+/** Whether `spelling` (lower case) is a name joined by hyphens that `withHyphens` made, not one a row writes. */
+export function isHyphenSpelling(spelling: string): boolean {
+  return HYPHEN_SPELLINGS.has(spelling);
+}
 
 const bySectionKey = new Map<SectionId, Map<string, FieldDef>>();
 const byId = new Map<string, FieldDef>();
