@@ -334,7 +334,8 @@ function inodeName(stats: BigIntStats): string | null {
 
 /**
  * What names a note whichever path reaches it: its device and inode when it has several names
- * (`inodeName`), else its `realpath`; null when it cannot be resolved. A file that is not itself a
+ * (`inodeName`), else its `realpath`; a symbolic link that leads nowhere, the link itself (its
+ * folder's real path and its name); null when it cannot be resolved. A file that is not itself a
  * symbolic link is where its folder really is, under its own name: the folder is resolved once for all its notes
  * (`realFolders`) and the file costs one `lstat`, where resolving each path walks every folder
  * above it again (a system call per folder, per note).
@@ -354,21 +355,23 @@ function noteIdentity(abs: string, realFolders: Map<string, string | null>): str
       link = true;
     }
   }
+  const folder = dirname(abs);
+  let real = realFolders.get(folder);
+  if (real === undefined) {
+    try {
+      real = realpathSync.native(folder);
+    } catch {
+      real = null;
+    }
+    realFolders.set(folder, real);
+  }
   try {
     if (link) return inodeName(statSync(abs, { bigint: true })) ?? realpathSync.native(abs);
-    const folder = dirname(abs);
-    let real = realFolders.get(folder);
-    if (real === undefined) {
-      try {
-        real = realpathSync.native(folder);
-      } catch {
-        real = null;
-      }
-      realFolders.set(folder, real);
-    }
     return real === null ? realpathSync.native(abs) : join(real, name);
   } catch {
-    return null;
+    // A link that leads nowhere (to nothing, or round a loop) is itself where its folder really
+    // is: reached by two paths (through a linked folder), it is one problem, not two.
+    return link && real !== null ? `\u0000link ${join(real, name)}` : null;
   }
 }
 
@@ -389,6 +392,39 @@ class WalkWatch {
   /** The `root` of the argument being walked. */
   root = '';
   private readonly nowhere = new Set<string>();
+  /** The real path of each folder a link was met in or below (null: it cannot be resolved). */
+  private readonly realFolders = new Map<string, string | null>();
+
+  /**
+   * Whether the symbolic link at `path` (as the walk reached it) leads, as `real`, to a folder the
+   * walk came through on its way from the root to the link: a loop (`up -> ..`). Everything in
+   * that folder is walked already, so the link is not followed; followed, it would make the walk
+   * go round once more and reach every note there again, by a path through the loop that sorts
+   * first when the link's name does (`a-loop/ward/x.pneu`), which would then name the note, and
+   * which exclusions anchored to the note's own path (`--exclude /ward/x.pneu`) do not match.
+   * A link to a folder above the root is followed: its notes are reached no other way.
+   */
+  private leadsBack(path: string, real: string): boolean {
+    const root = resolve(this.root);
+    let folder = dirname(resolve(path));
+    if (!holds(root, folder)) return false;
+    for (;;) {
+      let folderReal = this.realFolders.get(folder);
+      if (folderReal === undefined) {
+        try {
+          folderReal = realpathSync(folder);
+        } catch {
+          folderReal = null;
+        }
+        this.realFolders.set(folder, folderReal);
+      }
+      if (folderReal === real) return true;
+      if (folder === root) return false;
+      const up = dirname(folder);
+      if (up === folder) return false;
+      folder = up;
+    }
+  }
   readonly fs: FileSystemAdapter = {
     readdirSync: ((path: string, options: { withFileTypes: true }) => {
       try {
@@ -403,14 +439,18 @@ class WalkWatch {
       }
     }) as unknown as FileSystemAdapter['readdirSync'],
     realpathSync: ((path: string) => {
+      let real: string;
       try {
-        return realpathSync(path);
+        real = realpathSync(path);
       } catch (error) {
         const code = errorCode(error);
         if (code !== 'ENOENT' && code !== 'ELOOP') throw error;
         this.nowhere.add(path);
         return path;
       }
+      // The walk leaves a link alone when it throws here (it suppresses the error).
+      if (this.leadsBack(path, real)) throw new Error(`${path} leads back to a folder the walk came through`);
+      return real;
     }) as unknown as FileSystemAdapter['realpathSync'],
     statSync: ((path: string) => {
       if (this.nowhere.has(path)) return lstatSync(path);
