@@ -929,23 +929,34 @@ export function binaryProblem(bytes: Uint8Array): string {
   if (a === 0xff && b === 0xfe) problem = c === 0 && d === 0 ? wide(4, false) : wide(2, false);
   else if (a === 0 && b === 0 && c === 0xfe && d === 0xff) problem = wide(4, true);
   else if (a === 0xfe && b === 0xff) problem = wide(2, true);
+  else {
+    // No mark (a script that wrote `utf-16-le`): said only of bytes that are plainly a note's text.
+    for (const big of [false, true]) {
+      if (problem === null && readsAsText(bytes, 2, big, 0)) problem = `is UTF-16 text (${big ? 'big' : 'little'}-endian, without a byte-order mark), not UTF-8: convert it to UTF-8 first`;
+    }
+  }
   return problem ?? 'looks like a binary file, not a note';
 }
 
 /**
  * Whether the code units after a byte-order mark (the first 2,048) read as a note would: no
  * control character but tab and line breaks, and mostly ASCII (sections, keys and numbers are).
+ * Without a mark (`from` 0), more is asked, since nothing but the bytes says what they are: at
+ * least 8 units, a line feed among them, and at least 9 in 10 of them ASCII.
  */
-function readsAsText(bytes: Uint8Array, width: 2 | 4, big: boolean): boolean {
+function readsAsText(bytes: Uint8Array, width: 2 | 4, big: boolean, from: number = width): boolean {
   let units = 0;
   let ascii = 0;
-  for (let at = width; at + width <= bytes.length && units < 2048; at += width, units++) {
+  let lineFeed = false;
+  for (let at = from; at + width <= bytes.length && units < 2048; at += width, units++) {
     let unit = 0;
     for (let k = 0; k < width; k++) unit = unit * 256 + bytes[big ? at + k : at + width - 1 - k]!;
     if (unit < 0x20 && unit !== 0x09 && unit !== 0x0a && unit !== 0x0d) return false;
     if (unit < 0x80) ascii++;
+    if (unit === 0x0a) lineFeed = true;
   }
-  return units > 0 && ascii * 2 >= units;
+  if (from > 0) return units > 0 && ascii * 2 >= units;
+  return units >= 8 && lineFeed && ascii * 10 >= units * 9;
 }
 
 /** A NUL byte in the first 8 KiB marks a binary file (as git does). */
