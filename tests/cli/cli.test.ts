@@ -95,6 +95,24 @@ describe('pneumark check', async () => {
     expect(fmt.err()).toBe('pneumark: le.pneu: is UTF-16 text (little-endian), not UTF-8: convert it to UTF-8 first\n');
   });
 
+  it('names a note saved as UTF-16 without a byte-order mark (a script writing utf-16-le) as such, not as a binary file', async () => {
+    const text = '@ day 1 08:00  caf\u00e9\nvitals hr 80\n';
+    const dir = tempDir();
+    writeFileSync(join(dir, 'le.pneu'), Buffer.from(text, 'utf16le'));
+    writeFileSync(join(dir, 'be.pneu'), Buffer.from(text, 'utf16le').swap16());
+    writeFileSync(join(dir, 'short.pneu'), Buffer.from([0x76, 0x00, 0x01, 0x02])); // too little to tell: binary
+    writeFileSync(join(dir, 'zeros.pneu'), Buffer.alloc(64)); // NULs alone are no text
+    const out = memoryIo({ cwd: dir });
+    expect(await run(['check', '.'], out)).toBe(2);
+    expect(out.err()).toBe([
+      'pneumark: be.pneu: is UTF-16 text (big-endian, without a byte-order mark), not UTF-8: convert it to UTF-8 first',
+      'pneumark: le.pneu: is UTF-16 text (little-endian, without a byte-order mark), not UTF-8: convert it to UTF-8 first',
+      'pneumark: short.pneu: looks like a binary file, not a note',
+      'pneumark: zeros.pneu: looks like a binary file, not a note',
+      '',
+    ].join('\n'));
+  });
+
   it('a note named with a trailing slash, as a folder would be, is told so in words, not by an error code', async () => {
     const dir = tempDir();
     writeFileSync(join(dir, 'ward.pneu'), '@ day 1 08:00\nvitals hr 80\n');

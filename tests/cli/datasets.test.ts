@@ -63,6 +63,35 @@ describe('finding notes', () => {
     expect(out.out()).toMatch(/5 notes checked/); // the four notes of the folder and the linked one
   });
 
+  it('does not walk a folder link that leads back to a folder the walk came through: notes keep their own paths, and anchored exclusions hold', async () => {
+    const dir = corpus();
+    // `a-loop` sorts before every other folder: walked through, it would name every note
+    // `a-loop/…`, the first of their paths in sorted order, and `/ward/three.pneu` would not match.
+    symlinkSync(dir, join(dir, 'a-loop'), 'dir');
+    symlinkSync('..', join(dir, 'ward', 'up'), 'dir'); // a loop one folder down
+    const out = io(dir);
+    expect(await run(['check', '.', '--exclude', '/ward/three.pneu'], out)).toBe(1);
+    const paths = [...new Set(out.out().split('\n').filter((l) => /\.pneu:\d/.test(l)).map((l) => l.split(':')[0]))];
+    expect(paths).toEqual(['archive/old.pneu', 'ward/two.pneu']);
+    expect(out.out()).toMatch(/3 notes checked/);
+    expect(out.err()).toBe('');
+    // A link to a folder above the one named is walked (its notes are not reached otherwise), once.
+    const above = io(join(dir, 'ward'));
+    await run(['export', '.', '--format', 'jsonl'], above);
+    const files = new Set(above.out().trim().split('\n').map((l) => (JSON.parse(l) as { file: string }).file));
+    expect([...files].sort()).toEqual(['a/one.pneu', 'three.pneu', 'two.pneu', 'up/archive/old.pneu']);
+  });
+
+  it('names a symbolic link to nothing once however many paths reach it, and counts it once', async () => {
+    const dir = corpus();
+    symlinkSync('moved-away.pneu', join(dir, 'ward', 'gone.pneu'));
+    symlinkSync(join(dir, 'ward'), join(dir, 'archive', 'ward-again'), 'dir');
+    const out = io(dir);
+    expect(await run(['check', '.'], out)).toBe(2);
+    expect(out.err()).toBe('pneumark: archive/ward-again/gone.pneu: a symbolic link to something that does not exist (moved-away.pneu)\n');
+    expect(out.out()).toMatch(/4 notes checked, 1 could not be checked/);
+  });
+
   it('checks a note once when it has several names (hard links), under the first in sorted order', async () => {
     const dir = corpus();
     linkSync(join(dir, 'ward', 'two.pneu'), join(dir, 'archive', 'two-linked.pneu'));

@@ -334,7 +334,8 @@ function inodeName(stats: BigIntStats): string | null {
 
 /**
  * What names a note whichever path reaches it: its device and inode when it has several names
- * (`inodeName`), else its `realpath`; null when it cannot be resolved. A file that is not itself a
+ * (`inodeName`), else its `realpath`; a symbolic link that leads nowhere, the link itself (its
+ * folder's real path and its name); null when it cannot be resolved. A file that is not itself a
  * symbolic link is where its folder really is, under its own name: the folder is resolved once for all its notes
  * (`realFolders`) and the file costs one `lstat`, where resolving each path walks every folder
  * above it again (a system call per folder, per note).
@@ -354,21 +355,23 @@ function noteIdentity(abs: string, realFolders: Map<string, string | null>): str
       link = true;
     }
   }
+  const folder = dirname(abs);
+  let real = realFolders.get(folder);
+  if (real === undefined) {
+    try {
+      real = realpathSync.native(folder);
+    } catch {
+      real = null;
+    }
+    realFolders.set(folder, real);
+  }
   try {
     if (link) return inodeName(statSync(abs, { bigint: true })) ?? realpathSync.native(abs);
-    const folder = dirname(abs);
-    let real = realFolders.get(folder);
-    if (real === undefined) {
-      try {
-        real = realpathSync.native(folder);
-      } catch {
-        real = null;
-      }
-      realFolders.set(folder, real);
-    }
     return real === null ? realpathSync.native(abs) : join(real, name);
   } catch {
-    return null;
+    // A link that leads nowhere (to nothing, or round a loop) is itself where its folder really
+    // is: reached by two paths (through a linked folder), it is one problem, not two.
+    return link && real !== null ? `\u0000link ${join(real, name)}` : null;
   }
 }
 
@@ -389,6 +392,39 @@ class WalkWatch {
   /** The `root` of the argument being walked. */
   root = '';
   private readonly nowhere = new Set<string>();
+  /** The real path of each folder a link was met in or below (null: it cannot be resolved). */
+  private readonly realFolders = new Map<string, string | null>();
+
+  /**
+   * Whether the symbolic link at `path` (as the walk reached it) leads, as `real`, to a folder the
+   * walk came through on its way from the root to the link: a loop (`up -> ..`). Everything in
+   * that folder is walked already, so the link is not followed; followed, it would make the walk
+   * go round once more and reach every note there again, by a path through the loop that sorts
+   * first when the link's name does (`a-loop/ward/x.pneu`), which would then name the note, and
+   * which exclusions anchored to the note's own path (`--exclude /ward/x.pneu`) do not match.
+   * A link to a folder above the root is followed: its notes are reached no other way.
+   */
+  private leadsBack(path: string, real: string): boolean {
+    const root = resolve(this.root);
+    let folder = dirname(resolve(path));
+    if (!holds(root, folder)) return false;
+    for (;;) {
+      let folderReal = this.realFolders.get(folder);
+      if (folderReal === undefined) {
+        try {
+          folderReal = realpathSync(folder);
+        } catch {
+          folderReal = null;
+        }
+        this.realFolders.set(folder, folderReal);
+      }
+      if (folderReal === real) return true;
+      if (folder === root) return false;
+      const up = dirname(folder);
+      if (up === folder) return false;
+      folder = up;
+    }
+  }
   readonly fs: FileSystemAdapter = {
     readdirSync: ((path: string, options: { withFileTypes: true }) => {
       try {
@@ -403,14 +439,18 @@ class WalkWatch {
       }
     }) as unknown as FileSystemAdapter['readdirSync'],
     realpathSync: ((path: string) => {
+      let real: string;
       try {
-        return realpathSync(path);
+        real = realpathSync(path);
       } catch (error) {
         const code = errorCode(error);
         if (code !== 'ENOENT' && code !== 'ELOOP') throw error;
         this.nowhere.add(path);
         return path;
       }
+      // The walk leaves a link alone when it throws here (it suppresses the error).
+      if (this.leadsBack(path, real)) throw new Error(`${path} leads back to a folder the walk came through`);
+      return real;
     }) as unknown as FileSystemAdapter['realpathSync'],
     statSync: ((path: string) => {
       if (this.nowhere.has(path)) return lstatSync(path);
@@ -889,23 +929,34 @@ export function binaryProblem(bytes: Uint8Array): string {
   if (a === 0xff && b === 0xfe) problem = c === 0 && d === 0 ? wide(4, false) : wide(2, false);
   else if (a === 0 && b === 0 && c === 0xfe && d === 0xff) problem = wide(4, true);
   else if (a === 0xfe && b === 0xff) problem = wide(2, true);
+  else {
+    // No mark (a script that wrote `utf-16-le`): said only of bytes that are plainly a note's text.
+    for (const big of [false, true]) {
+      if (problem === null && readsAsText(bytes, 2, big, 0)) problem = `is UTF-16 text (${big ? 'big' : 'little'}-endian, without a byte-order mark), not UTF-8: convert it to UTF-8 first`;
+    }
+  }
   return problem ?? 'looks like a binary file, not a note';
 }
 
 /**
  * Whether the code units after a byte-order mark (the first 2,048) read as a note would: no
  * control character but tab and line breaks, and mostly ASCII (sections, keys and numbers are).
+ * Without a mark (`from` 0), more is asked, since nothing but the bytes says what they are: at
+ * least 8 units, a line feed among them, and at least 9 in 10 of them ASCII.
  */
-function readsAsText(bytes: Uint8Array, width: 2 | 4, big: boolean): boolean {
+function readsAsText(bytes: Uint8Array, width: 2 | 4, big: boolean, from: number = width): boolean {
   let units = 0;
   let ascii = 0;
-  for (let at = width; at + width <= bytes.length && units < 2048; at += width, units++) {
+  let lineFeed = false;
+  for (let at = from; at + width <= bytes.length && units < 2048; at += width, units++) {
     let unit = 0;
     for (let k = 0; k < width; k++) unit = unit * 256 + bytes[big ? at + k : at + width - 1 - k]!;
     if (unit < 0x20 && unit !== 0x09 && unit !== 0x0a && unit !== 0x0d) return false;
     if (unit < 0x80) ascii++;
+    if (unit === 0x0a) lineFeed = true;
   }
-  return units > 0 && ascii * 2 >= units;
+  if (from > 0) return units > 0 && ascii * 2 >= units;
+  return units >= 8 && lineFeed && ascii * 10 >= units * 9;
 }
 
 /** A NUL byte in the first 8 KiB marks a binary file (as git does). */
