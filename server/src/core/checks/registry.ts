@@ -12,6 +12,7 @@ import { oldSettingCarried } from './old-setting';
 import { badShorthand, badTime, highFlowPercent, venturiSetting, decimalComma, duplicateKey, missingValue, otherUnitLikely, strayText, unitNotAllowed, unknownKey, unknownSection, unknownUnit, unknownWord } from './collected';
 import { pao2AboveAlveolar } from './alveolar-limit';
 import { occultHypoxaemiaCheck } from './occult-hypoxaemia';
+import { complianceImplausible } from './compliance-reach';
 import { gasInconsistent } from './gas-consistency';
 import { internalError } from './internal';
 import { acidBaseReading, oxygenationReading, respiratoryFailureReading, venousGasReading, ventilationReading } from './interpretations';
@@ -78,6 +79,7 @@ export const CHECKS: readonly CheckDef[] = validateCheckList([
   plateauHigh,
   drivingPressureHigh,
   occultHypoxaemiaCheck,
+  complianceImplausible,
   oxygenationReading,
   ventilationReading,
   respiratoryFailureReading,

@@ -21,6 +21,8 @@ export const SOURCES = Object.freeze({
     'Amato MBP, Meade MO, Slutsky AS, et al. Driving pressure and survival in the acute respiratory distress syndrome. N Engl J Med 2015;372(8):747–755: driving pressure ΔP = VT / Crs, a 1-SD increment (about 7 cmH2O) associated with increased mortality, relative risk 1.41 (read in its abstract; the issue number from memory).',
   'respiratory-mechanics':
     'Static compliance VT / (Pplat − PEEP), dynamic compliance VT / (Ppeak − PEEP), resistance (Ppeak − Pplat) / flow in constant-flow volume control, minute ventilation VT × RR: standard respiratory mechanics; common practice, no single source.',
+  'compliance-ceiling':
+    'Static compliance of the respiratory system in ventilated patients with normal lungs, 50–100 mL/cmH2O (read on the Royal North Shore Hospital intensive care unit\'s teaching page on pressure, rnshicu.org/topic/pressure; a healthy adult\'s lungs and chest wall each about 200 mL/cmH2O, in series about 100: from memory). The ceiling of 200 mL/cmH2O above which Pneumark reports a compliance is its own margin, twice the top of that range: common practice, no source.',
   'gattinoni-2016':
     'Gattinoni L, Tonetti T, Cressoni M, et al. Ventilator-related causes of lung injury: the mechanical power. Intensive Care Med 2016;42(10):1567–1575, doi 10.1007/s00134-016-4505-2: mechanical power from the equation of motion multiplied by the change of volume and the rate, which it reports rises with tidal volume, driving pressure and flow squared (read in its abstract on link.springer.com; the full equation, 0.098 × RR × {VT² × [½ × Ers + RR × (1 + I:E) / (60 × I:E) × Raw] + VT × PEEP}, read as quoted in the abstract of Wu SH and coauthors, J Clin Monit Comput 2022, doi 10.1007/s10877-022-00823-3; the simplified form Pneumark uses, 0.098 × RR × VT × (Ppeak − ½ × (Pplat − PEEP)), equals it under constant inspiratory flow, and is not read as such: from memory).',
   'becher-2019':
@@ -67,6 +69,9 @@ export const LUNG_PROTECTIVE_VT_MAX_ML_PER_KG = 8;
 
 /** Driving pressure commonly flagged (cmH2O), after `amato-2015`: the flag itself is common practice, no source. */
 export const DRIVING_PRESSURE_FLAG_CMH2O = 15;
+
+/** Static compliance (mL/cmH2O) above which Pneumark reports one, twice the top of the normal range. Source: `compliance-ceiling`. */
+export const COMPLIANCE_CEILING_ML_PER_CMH2O = 200;
 
 /** Height (cm) at which the ARDSNet formulas give their base weights (60 inches). Source: `ardsnet-2000`. */
 export const PBW_REFERENCE_HEIGHT_CM = 152.4;

@@ -1,0 +1,58 @@
+// PN407: a static compliance no respiratory system gives. Ventilated patients with normal lungs have
+// a static compliance of 50–100 mL/cmH2O (read on the Royal North Shore Hospital intensive care
+// unit's teaching page on pressure, rnshicu.org/topic/pressure); Pneumark reports one above 200
+// mL/cmH2O, twice the top of that range (its own margin: common practice, no source), and a tidal
+// volume delivered with the plateau equal to the PEEP (no rise in pressure: static compliance
+// VT / (Pplat − PEEP) has no value, respiratory mechanics, common practice, no source).
+import { describe, expect, it } from 'vitest';
+import { checkNote } from '../../server/src/core';
+
+const pn407 = (text: string) => checkNote(text).findings.filter((f) => f.code === 'PN407');
+const codes = (text: string) => checkNote(text).findings.map((f) => f.code).filter((c) => /^PN30[34]$|^PN407$/.test(c));
+
+describe('Static compliance no respiratory system gives (PN407)', () => {
+  it('fires above 200 mL/cmH2O, on the plateau, with the numbers it rests on', () => {
+    // 450 ÷ (12 − 10) = 225 mL/cmH2O.
+    const f = pn407('@ 08:00\nvent mode VC, vt 450 mL, rate 14, peep 10, plateau 12');
+    expect(f).toHaveLength(1);
+    expect(f[0]?.severity).toBe('warning');
+    expect(f[0]?.message).toBe(
+      'Static compliance 225 mL/cmH2O (450 ÷ (12 − 10)) is above 200 mL/cmH2O, more than the lungs and chest wall of a healthy adult give together: consistent with a transcription error in the plateau, the PEEP or the tidal volume.',
+    );
+    // `plateau 12` on line 1 (0-based), at character 43.
+    expect(f[0]?.range.start).toEqual({ line: 1, character: 43 });
+  });
+
+  it('keeps the compliance shown: it reports, it does not withhold', () => {
+    const r = checkNote('@ 08:00\nvent mode VC, vt 450 mL, rate 14, peep 10, plateau 12');
+    expect(r.analysis.derivation(0).derived.find((d) => d.id === 'compliance_static')?.value).toBe(225);
+  });
+
+  it('is silent at and below the ceiling, and for ordinary mechanics', () => {
+    // 400 ÷ 2 = 200: at the ceiling, not above it.
+    expect(pn407('@ 08:00\nvent mode VC, vt 400 mL, rate 14, peep 10, plateau 12')).toEqual([]);
+    expect(pn407('@ 08:00\nvent mode VC, vt 402 mL, rate 14, peep 10, plateau 12')).toHaveLength(1);
+    // 450 ÷ (20 − 5) = 30 mL/cmH2O, a stiff lung: PN407 says nothing of it.
+    expect(pn407('@ 08:00\nvent mode VC, vt 450 mL, rate 14, peep 5, plateau 20')).toEqual([]);
+  });
+
+  it('fires where the plateau equals the PEEP while a volume was delivered', () => {
+    const f = pn407('@ 08:00\nvent mode VC, vt 450 mL, rate 14, peep 10, plateau 10');
+    expect(f.map((x) => x.message)).toEqual([
+      'Plateau pressure 10 cmH2O equals the PEEP with a tidal volume of 450 mL: a breath delivered with no rise in pressure, which no respiratory system allows; consistent with a transcription error in the plateau or the PEEP.',
+    ]);
+  });
+
+  it('leaves a plateau below the PEEP to PN303, and needs a plateau written at the timepoint', () => {
+    expect(codes('@ 08:00\nvent mode VC, vt 450 mL, rate 14, peep 10, plateau 9')).toEqual(['PN303']);
+    // The plateau of 08:00 is a reading of its timepoint; at 09:00 only the settings carry.
+    expect(codes('@ 08:00\nvent mode VC, vt 450 mL, rate 14, peep 10, plateau 20\n@ 09:00\nvent peep 19')).toEqual([]);
+    // A PEEP carried from an earlier timepoint counts with a plateau written here: 450 ÷ (11 − 10).
+    expect(pn407('@ 08:00\nvent mode VC, vt 450 mL, rate 14, peep 10\n@ 09:00\nvent plateau 11')).toHaveLength(1);
+  });
+
+  it('works in cmH2O whatever the unit written', () => {
+    // 12 mbar = 12.24 cmH2O (1 mbar = 100 Pa, 1 cmH2O = 98.0665 Pa): 450 ÷ 2.24 = 201 mL/cmH2O.
+    expect(pn407('@ 08:00\nvent mode VC, vt 0.45 L, rate 14, peep 10, plateau 12 mbar')).toHaveLength(1);
+  });
+});
