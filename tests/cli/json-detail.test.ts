@@ -8,6 +8,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { run } from '../../server/src/cli/main';
+import { jsonFileEntryOrProblem, TOO_MUCH_JSON } from '../../server/src/cli/render-check';
 import { memoryIo } from '../helpers/memory-io';
 import { generateNote } from '../bench/generate.mjs';
 
@@ -143,6 +144,15 @@ describe('check --format json --json-detail findings', () => {
       expect(parsed.detail).toBeUndefined();
       expect(parsed.files.every((f) => Array.isArray(f.timepoints))).toBe(true);
     }
+  });
+
+  it('writes the findings of a note whose timepoints are more JSON than a string holds, and points to that way in the problem of the full output', () => {
+    const tooBig = { toJSON() { throw new RangeError('Invalid string length'); } };
+    const outcome = { path: 'huge.pneu', findings: [], problem: null, timepoints: [tooBig] };
+    const findingsOnly = jsonFileEntryOrProblem(outcome, false, { version: 1, indented: false, detail: 'findings' });
+    expect(findingsOnly).toEqual({ entry: '{"path":"huge.pneu","problem":null,"findings":[]}', problem: null });
+    expect(jsonFileEntryOrProblem(outcome, false, { version: 1, indented: false }).problem).toBe(TOO_MUCH_JSON);
+    expect(TOO_MUCH_JSON).toMatch(/--json-detail findings/);
   });
 
   it('is described in check --help', async () => {

@@ -295,7 +295,7 @@ function jsonFileEntryParts(o: FileOutcome, errorsOnly: boolean, layout: JsonLay
 }
 
 /** Why a note's JSON entry leaves out its timepoints, when they make more JSON than one string can hold. */
-export const TOO_MUCH_JSON = 'its timepoints make more JSON than one string can hold; check it with --format text or sarif, or export it with --format jsonl or csv';
+export const TOO_MUCH_JSON = 'its timepoints make more JSON than one string can hold; check it with --json-detail findings or --format text or sarif, or export it with --format jsonl or csv';
 
 /** Why a note's JSON entry leaves out its findings (and timepoints), when they make more JSON than one string can hold. */
 export const TOO_MANY_FINDINGS = 'its findings make more JSON than one string can hold; check it with --format text or sarif';
