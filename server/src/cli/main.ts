@@ -177,8 +177,8 @@ async function check(args: readonly string[], io: Io): Promise<number> {
   const redact = opts.redact;
   const unread: FileOutcome[] = problems.map((p) => ({ path: redact ? REDACTED_WORD : p.path, findings: [], problem: redact && p.problem !== null ? redactedProblem(p.problem, REDACTED_WORD) : p.problem }));
   const named = (report: FileReport, index: number): FileReport => (redact ? redactedReport(report, index) : report);
-  // JSON (with every timepoint, unless --json-detail findings) is written a note at a time as the notes come in, in their order,
-  // and each note's timepoints are let go once written.
+  // JSON (with every timepoint, unless --json-detail findings) is written a note at a time as the
+  // notes come in, in their order, and each note's timepoints are let go once written.
   const output = new Output(io.stdout);
   const json = opts.format === 'json' ? new CheckJsonWriter(output, opts.quiet, layout) : null;
   if (json) for (const o of unread) json.file(o);
