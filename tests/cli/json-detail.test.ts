@@ -158,6 +158,8 @@ describe('check --format json --json-detail findings', () => {
   it('is described in check --help', async () => {
     const io = memoryIo();
     await run(['check', '--help'], io);
-    expect(io.out()).toMatch(/--json-detail findings\|full/);
+    const text = io.out().replace(/\s+/g, ' ');
+    expect(text).toContain('--json-detail KIND json: what each note\'s entry holds, KIND full (the default): its findings and its timepoints');
+    expect(text).toContain('or findings: its path, problem and findings alone');
   });
 });
