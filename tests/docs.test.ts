@@ -559,11 +559,11 @@ describe('the outputs README.md shows', () => {
     return shown === actual ? [] : [`${at}: ${JSON.stringify(actual)}, not ${JSON.stringify(shown)}`];
   };
 
-  it('the JSON examples, version 1 and 2, are what `check --format json` writes for samples/broken-note.pneu', () => {
-    const examples = [...doc.matchAll(/```jsonc\n([\s\S]*?)```/g)].map((m) => parseExample(m[1]!) as { pneumark: number });
-    expect(examples.map((e) => e.pneumark)).toEqual([1, 2]);
-    const golden = (version: number): unknown => JSON.parse(readFileSync(`tests/golden/broken-note.check${version === 1 ? '' : '-v2'}.json`, 'utf8'));
-    expect(examples.flatMap((e) => differences(e, golden(e.pneumark), `version ${e.pneumark}`))).toEqual([]);
+  it('the JSON examples, version 1, findings alone and version 2, are what `check --format json` writes for samples/broken-note.pneu', () => {
+    const examples = [...doc.matchAll(/```jsonc\n([\s\S]*?)```/g)].map((m) => parseExample(m[1]!) as { pneumark: number; detail?: string });
+    expect(examples.map((e) => `${e.pneumark}${e.detail === undefined ? '' : ` ${e.detail}`}`)).toEqual(['1', '1 findings', '2']);
+    const golden = (e: { pneumark: number; detail?: string }): unknown => JSON.parse(readFileSync(`tests/golden/broken-note.check${e.detail === 'findings' ? '-findings' : e.pneumark === 1 ? '' : '-v2'}.json`, 'utf8'));
+    expect(examples.flatMap((e) => differences(e, golden(e), `version ${e.pneumark}${e.detail === undefined ? '' : `, ${e.detail}`}`))).toEqual([]);
   });
 
   it("the demo note's legend quoted is part of what `npm start` shows", () => {

@@ -39,6 +39,8 @@ describe('golden command-line output', () => {
     // same value (tests/cli/json-layout.test.ts).
     it(`check json: ${sample}`, async () => compare(`${base}.check.json`, await output(['check', '--format', 'json', '--indented', `samples/${sample}`])));
     it(`check json version 2: ${sample}`, async () => compare(`${base}.check-v2.json`, await output(['check', '--format', 'json', '--json-version', '2', '--indented', `samples/${sample}`])));
+    // Findings alone, for continuous integration: no timepoints.
+    it(`check json findings: ${sample}`, async () => compare(`${base}.check-findings.json`, await output(['check', '--format', 'json', '--json-detail', 'findings', '--indented', `samples/${sample}`])));
     it(`show: ${sample}`, async () => compare(`${base}.show.txt`, await output(['show', `samples/${sample}`])));
   }
 });

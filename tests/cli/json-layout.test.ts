@@ -33,9 +33,9 @@ function folder(): string {
 interface V2Origin { kind: string; line?: number; timepoint?: number; description?: string; derived?: string; carriedMinutes?: number }
 interface V2Derived { id: string; value: unknown; low?: unknown; high?: unknown; unit: string; definition: string; substituted: string; estimate: boolean; usesCarried: boolean; inputs: { name: string; value: unknown; unit: string; origin: V2Origin; note?: string }[]; notes: string[] }
 interface V2Timepoint { values: { origin: V2Origin }[]; derived: V2Derived[] }
-interface V2 { pneumark: number; files: { timepoints?: V2Timepoint[] }[]; summary: unknown; definitions: Record<string, { formula: string; source: string }> }
+interface V2 { pneumark: number; detail?: string; files: { timepoints?: V2Timepoint[] }[]; summary: unknown; definitions: Record<string, { formula: string; source: string }> }
 
-/** Version 1 as rebuilt from version 2 alone: the origins' null members put back, each definition's formula and source in place of its key. */
+/** Version 1 as rebuilt from version 2 alone: the origins' null members put back, each definition's formula and source in place of its key (`detail` kept where it is there). */
 function v1FromV2(v2: V2): unknown {
   const origin = (o: V2Origin) => ({ kind: o.kind, line: o.line ?? null, timepoint: o.timepoint ?? null, description: o.description ?? null, ...(o.derived !== undefined ? { derived: o.derived } : {}), ...(o.kind === 'carried' ? { carriedMinutes: o.carriedMinutes ?? null } : {}) });
   const definition = (key: string) => {
@@ -45,6 +45,7 @@ function v1FromV2(v2: V2): unknown {
   };
   return {
     pneumark: 1,
+    ...(v2.detail !== undefined ? { detail: v2.detail } : {}),
     files: v2.files.map((f) => ({
       ...f,
       ...(f.timepoints ? {
@@ -184,6 +185,17 @@ describe('check --format json --json-version 2', () => {
       expect(timepointsJsonV2(result, direct, (json) => JSON.stringify(json))).toEqual(timepointsJson(result, (json) => JSON.stringify(timepointV2(json, fromV1))));
       expect([...direct]).toEqual([...fromV1]);
       expect(direct.size).toBeGreaterThan(0);
+    }
+  });
+
+  it('rebuilds version 1 with --json-detail findings too (its definitions empty), with and without --quiet', async () => {
+    for (const extra of [[], ['--quiet']]) {
+      const v1 = await checked(['--format', 'json', '--indented', '--json-detail', 'findings', ...extra, ...SAMPLES]);
+      const v2 = await checked(['--format', 'json', '--json-version', '2', '--json-detail', 'findings', ...extra, ...SAMPLES]);
+      const parsed = JSON.parse(v2.out) as V2;
+      expect(parsed.definitions).toEqual({});
+      expect(parsed.detail).toBe('findings');
+      expect(`${JSON.stringify(v1FromV2(parsed), null, 2)}\n`).toBe(v1.out);
     }
   });
 

@@ -85,6 +85,10 @@ Options:
   --json-version 1|2         json: the shape's version (default 1); 2 writes each derived value's
                              formula and source once, in a table of the run at the end, and leaves
                              out the null members of origins (see README.md, "JSON output")
+  --json-detail KIND         json: what each note's entry holds, KIND full (the default): its
+                             findings and its timepoints with every value, derived value and
+                             reading; or findings: its path, problem and findings alone (a small
+                             output for continuous integration; the summary is the same)
   --indented                 json: indent it even when standard output is not a terminal (a file
                              or a pager for people to read)
   --quiet                    list error findings only (text, json and sarif; totals count all)

@@ -138,6 +138,7 @@ const checkOptions = z.object({
   stdinName: stdinNameOption,
   redact: z.boolean().default(false),
   jsonVersion: z.enum(['1', '2']).optional(),
+  jsonDetail: z.enum(['findings', 'full']).optional(),
   indented: z.boolean().default(false),
 });
 
@@ -151,12 +152,17 @@ function redactedReport(report: FileReport, index: number): FileReport {
 }
 
 async function check(args: readonly string[], io: Io): Promise<number> {
-  const { positionals, values } = parse(args, { format: { type: 'string' }, quiet: { type: 'boolean' }, 'max-warnings': { type: 'string' }, exclude: { type: 'string', multiple: true }, jobs: { type: 'string' }, 'no-progress': { type: 'boolean' }, 'stdin-name': { type: 'string' }, redact: { type: 'boolean' }, 'json-version': { type: 'string' }, indented: { type: 'boolean' } });
+  const { positionals, values } = parse(args, { format: { type: 'string' }, quiet: { type: 'boolean' }, 'max-warnings': { type: 'string' }, exclude: { type: 'string', multiple: true }, jobs: { type: 'string' }, 'no-progress': { type: 'boolean' }, 'stdin-name': { type: 'string' }, redact: { type: 'boolean' }, 'json-version': { type: 'string' }, 'json-detail': { type: 'string' }, indented: { type: 'boolean' } });
   if (values.help) { io.stdout.write(`${HELP.check}\n`); return EXIT.ok; }
-  const opts = validate(checkOptions, { format: values.format, quiet: values.quiet, maxWarnings: values['max-warnings'], exclude: values.exclude, jobs: values.jobs, progress: !values['no-progress'], stdinName: values['stdin-name'], redact: values.redact, jsonVersion: values['json-version'], indented: values.indented }, { progress: '--no-progress' });
-  if (opts.format !== 'json' && (opts.jsonVersion !== undefined || opts.indented)) throw new UsageError(`${opts.jsonVersion !== undefined ? '--json-version' : '--indented'} applies to --format json only`);
+  const opts = validate(checkOptions, { format: values.format, quiet: values.quiet, maxWarnings: values['max-warnings'], exclude: values.exclude, jobs: values.jobs, progress: !values['no-progress'], stdinName: values['stdin-name'], redact: values.redact, jsonVersion: values['json-version'], jsonDetail: values['json-detail'], indented: values.indented }, { progress: '--no-progress' });
+  if (opts.format !== 'json') {
+    const jsonOnly = opts.jsonVersion !== undefined ? '--json-version' : opts.jsonDetail !== undefined ? '--json-detail' : opts.indented ? '--indented' : null;
+    if (jsonOnly !== null) throw new UsageError(`${jsonOnly} applies to --format json only`);
+  }
   // Indented for people (a terminal, or --indented), compact for programs: the same JSON value.
-  const layout: JsonLayout = { version: opts.jsonVersion === '2' ? 2 : 1, indented: opts.indented || io.stdout.isTTY === true };
+  // `--json-detail findings`: each note's findings alone, no timepoints made or sent.
+  const detail = opts.jsonDetail ?? 'full';
+  const layout: JsonLayout = { version: opts.jsonVersion === '2' ? 2 : 1, indented: opts.indented || io.stdout.isTTY === true, detail };
   if (positionals.length === 0) throw new UsageError('check needs at least one file, folder, pattern or - (stdin)');
   const stdinName = opts.stdinName === undefined ? null : shownFilePath(opts.stdinName, io.cwd);
   const { files, problems, stdinExcluded } = listInputs(positionals, io.cwd, opts.exclude, stdinName);
@@ -171,8 +177,8 @@ async function check(args: readonly string[], io: Io): Promise<number> {
   const redact = opts.redact;
   const unread: FileOutcome[] = problems.map((p) => ({ path: redact ? REDACTED_WORD : p.path, findings: [], problem: redact && p.problem !== null ? redactedProblem(p.problem, REDACTED_WORD) : p.problem }));
   const named = (report: FileReport, index: number): FileReport => (redact ? redactedReport(report, index) : report);
-  // JSON (with every timepoint) is written a note at a time as the notes come in, in their order,
-  // and each note's timepoints are let go once written.
+  // JSON (with every timepoint, unless --json-detail findings) is written a note at a time as the
+  // notes come in, in their order, and each note's timepoints are let go once written.
   const output = new Output(io.stdout);
   const json = opts.format === 'json' ? new CheckJsonWriter(output, opts.quiet, layout) : null;
   if (json) for (const o of unread) json.file(o);
@@ -180,7 +186,7 @@ async function check(args: readonly string[], io: Io): Promise<number> {
     inOrder: (r: FileReport, i: number): FileReport => written(r, json.file(named(r, i))),
     ready: () => output.ready(),
   } : undefined;
-  const reports = await gather(files, { kind: 'check', timepoints: json !== null, errorsOnly: opts.quiet, redact, layout }, io, worker, opts.progress && !(json && io.stdout.isTTY), 'checking', opts.jobs, streaming);
+  const reports = await gather(files, { kind: 'check', timepoints: json !== null && detail === 'full', errorsOnly: opts.quiet, redact, layout }, io, worker, opts.progress && !(json && io.stdout.isTTY), 'checking', opts.jobs, streaming);
   const outcomes: FileOutcome[] = [...unread, ...(json ? reports : reports.map(named))];
   const p: Paint = paint(colourWanted(io.stdout, io.env));
   if (json) {

@@ -17,14 +17,25 @@ import { visible } from './visible';
 import type { JsonDefinition, KeyedDefinition } from './timepoints-json';
 
 /**
+ * What `check --format json` writes of each note (`--json-detail`): `full`, its findings and its
+ * timepoints with every value; `findings`, its path, problem and findings alone (for continuous
+ * integration: a note's timepoints are tens of times the size of its findings).
+ */
+export type JsonDetail = 'full' | 'findings';
+
+/**
  * How `check --format json` is written: its version (1, or 2 with the run's definitions in a
- * table), and indented (two spaces a level, as `JSON.stringify(…, null, 2)`) or compact (no space
+ * table), indented (two spaces a level, as `JSON.stringify(…, null, 2)`) or compact (no space
  * between tokens; a line break before each note's entry and before the end of the list of files,
- * so each note is one line).
+ * so each note is one line), and its detail (`full` when not given). With `findings`, the run's
+ * object says so after its version (`"detail": "findings"`), so that an entry without timepoints
+ * is not read as a note whose timepoints could not be written, and in version 2 its table of
+ * definitions is empty (no derived value points to one).
  */
 export interface JsonLayout {
   readonly version: 1 | 2;
   readonly indented: boolean;
+  readonly detail?: JsonDetail;
 }
 
 /** Version 1, indented: what `check --format json` wrote before layouts were chosen. */
@@ -182,7 +193,10 @@ export class CheckJsonWriter {
   private readonly definitions = new Map<string, JsonDefinition>();
 
   constructor(private readonly out: { write(s: string): unknown }, private readonly errorsOnly = false, private readonly layout: JsonLayout = INDENTED_V1) {
-    out.write(layout.indented ? `{\n  "pneumark": ${layout.version},\n  "files": [` : `{"pneumark":${layout.version},"files":[`);
+    const findingsOnly = layout.detail === 'findings';
+    out.write(layout.indented
+      ? `{\n  "pneumark": ${layout.version},${findingsOnly ? '\n  "detail": "findings",' : ''}\n  "files": [`
+      : `{"pneumark":${layout.version},${findingsOnly ? '"detail":"findings",' : ''}"files":[`);
   }
 
   /**
@@ -194,8 +208,8 @@ export class CheckJsonWriter {
     countOutcome(o, this.total);
     const { parts, problem } = o.entry !== undefined ? { parts: [o.entry], problem: o.problem } : jsonFileEntryPartsOrProblem(o, this.errorsOnly, this.layout);
     if (problem) this.unreadable++;
-    // An entry that had to leave its timepoints out points to no definition.
-    if (o.definitions !== undefined && problem !== TOO_MUCH_JSON && problem !== TOO_MANY_FINDINGS) this.define(o.definitions);
+    // An entry that had to leave its timepoints out (or was asked to) points to no definition.
+    if (o.definitions !== undefined && this.layout.detail !== 'findings' && problem !== TOO_MUCH_JSON && problem !== TOO_MANY_FINDINGS) this.define(o.definitions);
     let piece = `${this.files++ === 0 ? '' : ','}\n${this.layout.indented ? '    ' : ''}`;
     for (const part of parts) {
       if (piece.length > 0 && piece.length + part.length > GATHER) {
@@ -253,8 +267,10 @@ const NO_TIMEPOINTS_COMPACT = '"timepoints":[]';
  */
 function jsonFileEntryParts(o: FileOutcome, errorsOnly: boolean, layout: JsonLayout): string[] {
   const findings = (errorsOnly ? o.findings.filter((f) => f.severity === 'error') : o.findings).map(toJsonFinding);
-  const texts = o.timepointTexts;
-  const timepoints = texts ?? o.timepoints;
+  // `--json-detail findings`: the entry of a note that could not be read, whatever it was given.
+  const findingsOnly = layout.detail === 'findings';
+  const texts = findingsOnly ? undefined : o.timepointTexts;
+  const timepoints = findingsOnly ? undefined : texts ?? o.timepoints;
   const indented = layout.indented;
   const entry = (value: unknown): string => (indented ? nested(value, '    ') : JSON.stringify(value));
   if (timepoints === undefined) return [entry({ path: o.path, problem: o.problem, findings })];
@@ -279,7 +295,7 @@ function jsonFileEntryParts(o: FileOutcome, errorsOnly: boolean, layout: JsonLay
 }
 
 /** Why a note's JSON entry leaves out its timepoints, when they make more JSON than one string can hold. */
-export const TOO_MUCH_JSON = 'its timepoints make more JSON than one string can hold; check it with --format text or sarif, or export it with --format jsonl or csv';
+export const TOO_MUCH_JSON = 'its timepoints make more JSON than one string can hold; check it with --json-detail findings or --format text or sarif, or export it with --format jsonl or csv';
 
 /** Why a note's JSON entry leaves out its findings (and timepoints), when they make more JSON than one string can hold. */
 export const TOO_MANY_FINDINGS = 'its findings make more JSON than one string can hold; check it with --format text or sarif';
