@@ -1,0 +1,79 @@
+// A respiratory educator's teaching notes, through the protocol as an editor asks for them:
+// what the hints, hovers and diagnostics say of the values an invented teaching case holds.
+// All patients, places and times are invented.
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import type { Hover, InlayHint } from 'vscode-languageserver-protocol';
+import { serverForTests } from './lsp-client';
+
+const client = serverForTests();
+
+const path = (name: string) => join(process.cwd(), name);
+const WHOLE = { start: { line: 0, character: 0 }, end: { line: 1000, character: 0 } };
+
+async function hintsOf(uri: string): Promise<string[]> {
+  const hints = await client.connection.sendRequest<InlayHint[]>('textDocument/inlayHint', { textDocument: { uri }, range: WHOLE });
+  return hints.map((h) => (typeof h.label === 'string' ? h.label : h.label.map((p) => p.value).join('')));
+}
+
+async function hoverText(uri: string, line: number, character: number): Promise<string> {
+  const hover = await client.connection.sendRequest<Hover | null>('textDocument/hover', { textDocument: { uri }, position: { line, character } });
+  const contents = hover?.contents;
+  return contents !== undefined && typeof contents === 'object' && 'value' in contents ? contents.value : '';
+}
+
+describe('a PaO2 above the inspired PO2, with no PaCO2 to work out the alveolar PO2', () => {
+  // PAO2 = PiO2 − PaCO2 × (FiO2 + (1 − FiO2) ÷ R) is below PiO2 for any PaCO2 above 0 (the alveolar gas
+  // equation: Riley RL, Cournand A, J Appl Physiol 1949;1:825–847, from memory), so no arterial PO2
+  // can be above the inspired PO2, whether or not a PaCO2 is written.
+  it('is reported as PN401, and neither a P/F nor a reading is made from it', async () => {
+    // Room air at sea level: PiO2 0.21 × (760 − 47) = 150 mmHg; a PaO2 of 160 cannot be.
+    const uri = client.open(path('teaching-room-air-no-pco2.pneu'), [
+      '# Invented teaching case: a gas sent without its PaCO2.',
+      '@ day 1 10:00  Brookfield ward',
+      'oxygen    room air',
+      'abg       ph 7.41, po2 160',
+      '',
+    ].join('\n'));
+    const { diagnostics } = await client.diagnostics(uri);
+    const pn401 = diagnostics.filter((d) => d.code === 'PN401');
+    expect(pn401.map((d) => [d.range.start.line, d.range.start.character])).toEqual([[3, 23]]);
+    expect(pn401[0]!.message).toContain('inspired PO2');
+    expect(diagnostics.map((d) => d.code)).not.toContain('PN410');
+    expect(await hintsOf(uri)).toEqual(['P/F withheld (PN401)']);
+    const hover = await hoverText(uri, 1, 0);
+    expect(hover).not.toMatch(/consistent with adequate arterial oxygenation/);
+    expect(hover).toContain('**Withheld**\n- P/F ratio (P/F): the PaO2 is above the inspired PO2');
+    expect(hover).toContain('PaO2 160 mmHg: oxygenation not read');
+  });
+
+  it('holds where a bare PaCO2 is not used because the gas unit makes it implausible', async () => {
+    // gasUnit kPa: `pco2 50` is doubted (PN204) and `po2 70` reads 70 kPa = 525 mmHg, above the
+    // PiO2 of 0.70 × (755 − 47) = 496 mmHg.
+    const uri = client.open(path('teaching-kpa-doubted.pneu'), [
+      'units     gas kPa',
+      'place     barometric 755 mmHg',
+      '@ day 1 11:00  Orchard ICU',
+      'vent      mode PC, pinsp 20, peep 10, fio2 0.7',
+      'abg       ph 7.30, pco2 50, po2 70, hco3 24',
+      '',
+    ].join('\n'));
+    const { diagnostics } = await client.diagnostics(uri);
+    expect(diagnostics.filter((d) => d.code === 'PN401').map((d) => d.range.start.line)).toEqual([4]);
+    const hints = (await hintsOf(uri)).join(' | ');
+    expect(hints).toContain('P/F withheld (PN401)');
+    expect(hints).not.toMatch(/P\/F \d/);
+  });
+
+  it('leaves a possible PaO2 without a PaCO2 as it was: P/F and its reading', async () => {
+    const uri = client.open(path('teaching-possible-no-pco2.pneu'), [
+      '@ day 1 10:00',
+      'oxygen    room air',
+      'abg       ph 7.41, po2 90',
+      '',
+    ].join('\n'));
+    const { diagnostics } = await client.diagnostics(uri);
+    expect(diagnostics.map((d) => d.code)).not.toContain('PN401');
+    expect((await hintsOf(uri)).join(' | ')).toContain('P/F 429');
+  });
+});
