@@ -77,3 +77,35 @@ describe('a PaO2 above the inspired PO2, with no PaCO2 to work out the alveolar 
     expect((await hintsOf(uri)).join(' | ')).toContain('P/F 429');
   });
 });
+
+describe("a child's height and weight", () => {
+  // The usual minimum of height (120 cm) and weight (25 kg) is an adult's (the range where the ARDS
+  // Network predicted-body-weight equation was used; common practice, no source): a child of 6 is
+  // smaller, and the warning only made noise on every paediatric teaching note.
+  it('are not called unusual below an adult minimum when the patient is under 18 years', async () => {
+    const uri = client.open(path('teaching-child.pneu'), [
+      '# Invented teaching case: a child with a chest infection.',
+      'patient   age 6 y, sex male, height 116 cm, weight 21 kg',
+      '@ day 1 03:10  Larkmoor children\'s ward',
+      'vitals    hr 138, rr 38, spo2 91 %',
+      '@ 05:00  weighed again on the ward scales',
+      'patient   weight 20.5 kg',
+      '',
+    ].join('\n'));
+    const { diagnostics } = await client.diagnostics(uri);
+    expect(diagnostics.filter((d) => d.code === 'PN302').map((d) => d.message)).toEqual([]);
+  });
+
+  it('are still called unusual above the usual maximum, and below the minimum in an adult or with no age', async () => {
+    const uri = client.open(path('teaching-sizes.pneu'), [
+      'patient   age 9 y, weight 260 kg',
+      '',
+    ].join('\n'));
+    const adult = client.open(path('teaching-adult-small.pneu'), 'patient   age 30 y, height 116 cm, weight 21 kg\n');
+    const ageless = client.open(path('teaching-no-age.pneu'), 'patient   height 116 cm\n');
+    const codes = async (u: string) => (await client.diagnostics(u)).diagnostics.filter((d) => d.code === 'PN302').map((d) => d.range.start.character);
+    expect(await codes(uri)).toEqual([26]);
+    expect(await codes(adult)).toEqual([27, 42]);
+    expect(await codes(ageless)).toEqual([17]);
+  });
+});
