@@ -109,3 +109,24 @@ describe("a child's height and weight", () => {
     expect(await codes(ageless)).toEqual([17]);
   });
 });
+
+describe('a key typed with the digit 0 for the letter o', () => {
+  it('is offered that key alone, not a key of another quantity as near by spelling', async () => {
+    // `pc02` was offered `pco2`, `fi02` and `paco2`: `fi02` (FiO2) would turn a PaCO2 into an FiO2.
+    const text = ['@ day 1 10:00  Brookfield ward', 'abg       ph 7.40, pc02 40, po2 90', 'vitals    sp02 96 %', ''].join('\n');
+    const uri = client.open(path('teaching-zero-for-o.pneu'), text);
+    const { diagnostics } = await client.diagnostics(uri);
+    const unknown = diagnostics.filter((d) => d.code === 'PN201');
+    expect(unknown.map((d) => d.message)).toEqual([
+      '`pc02` is not a key of abg lines. Did you mean `pco2`?',
+      '`sp02` is not a key of vitals lines. Did you mean `spo2`?',
+    ]);
+    const actions = await client.connection.sendRequest<{ title: string; kind?: string; isPreferred?: boolean }[]>('textDocument/codeAction', {
+      textDocument: { uri },
+      range: unknown[0]!.range,
+      context: { diagnostics: [unknown[0]] },
+    });
+    const fixes = actions.filter((a) => a.kind === 'quickfix' && !a.title.startsWith('Fix all'));
+    expect(fixes.map((a) => [a.title, a.isPreferred === true])).toEqual([['Change to `pco2`', true]]);
+  });
+});
