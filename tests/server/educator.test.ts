@@ -130,3 +130,90 @@ describe('a key typed with the digit 0 for the letter o', () => {
     expect(fixes.map((a) => [a.title, a.isPreferred === true])).toEqual([['Change to `pco2`', true]]);
   });
 });
+
+describe('a teaching note edited as an editor sends its edits', () => {
+  /** A position in UTF-16 code units, lines broken at CRLF, CR or LF, as LSP counts them. */
+  function positionOf(text: string, offset: number): { line: number; character: number } {
+    let line = 0;
+    let start = 0;
+    for (let i = 0; i < offset; i++) {
+      if (text[i] === '\r' && text[i + 1] === '\n') continue;
+      if (text[i] === '\n' || text[i] === '\r') {
+        line++;
+        start = i + 1;
+      }
+    }
+    return { line, character: offset - start };
+  }
+
+  // Several edits in one didChange, each against the text the ones before it left: a block pasted
+  // across timepoints, a timepoint header deleted and restored (undo), a carried setting edited
+  // inside its line, a line break typed in a CRLF note, and a lone CR.
+  const BASE = [
+    '# Invented teaching case: weaning on the ward at Fenwick.',
+    'patient   age 58 y, sex female, height 165 cm, weight 70 kg',
+    'place     altitude 1400 m',
+    '',
+    '@ day 1 08:00  on the ventilator',
+    'vent      mode PC, pinsp 18, peep 8, fio2 0.5, rate 18',
+    'abg       7.34/48/72/25',
+    '',
+    '@ 12:00  PEEP lowered',
+    'vent      peep 6',
+    'abg       7.36/46/68/25.5',
+    '',
+    '@ +4h',
+    'oxygen    niv ipap 14, epap 6, fio2 40 %',
+    'abg       ph 7.38, pco2 44, po2 70, hco3 25',
+    '',
+  ].join('\r\n');
+  type Step = readonly { readonly find: string; readonly length?: number; readonly insert: string }[];
+  const STEPS: readonly Step[] = [
+    // A block of two timepoints pasted after the first gas, its lines ending as the note's do.
+    [{ find: 'abg       7.34/48/72/25\r\n', insert: '\r\n@ 09:00  pasted\r\nvent      fio2 0.7\r\nabg       7.30/52/60/24\r\n@ 10:00\r\nabg       7.31/50/65/24\r\n' }],
+    // The header of `@ 12:00` deleted: its lines join the timepoint before.
+    [{ find: '@ 12:00  PEEP lowered\r\n', length: '@ 12:00  PEEP lowered\r\n'.length, insert: '' }],
+    // Undone.
+    [{ find: 'vent      peep 6', insert: '@ 12:00  PEEP lowered\r\n' }],
+    // The carried FiO2 changed inside its line, and the altitude, in one notification.
+    [{ find: 'fio2 0.5', length: 'fio2 0.5'.length, insert: 'fio2 0.35' }, { find: '1400 m', length: 4, insert: '2600' }],
+    // A line break typed at the end of a line of a CRLF note, then a lone CR typed in a line.
+    [{ find: '\r\n@ +4h', insert: '\r\n' }],
+    [{ find: 'oxygen    niv', insert: 'units     gas kPa\r' }],
+    // Everything from the middle of one timepoint to the middle of another replaced by a paste.
+    [{ find: 'rate 18', length: 'rate 18\r\nabg       7.34/48/72/25'.length, insert: 'rate 20\r\nabg       7.33/49/70/25' }],
+  ];
+
+  it('gives after each edit what a fresh analysis of the same text gives', async () => {
+    let text = BASE;
+    const uri = client.open(path('teaching-edited.pneu'), text);
+    await client.diagnostics(uri);
+    const plain = (list: readonly { range: unknown; code?: unknown; message: string }[]) => list.map((d) => [d.range, d.code, d.message]);
+    let version = 1;
+    for (const [n, step] of STEPS.entries()) {
+      const changes = [];
+      for (const edit of step) {
+        const at = text.indexOf(edit.find);
+        expect(at, `step ${n}: ${JSON.stringify(edit.find)}`).toBeGreaterThanOrEqual(0);
+        const start = positionOf(text, at);
+        const end = positionOf(text, at + (edit.length ?? 0));
+        changes.push({ range: { start, end }, text: edit.insert });
+        text = text.slice(0, at) + edit.insert + text.slice(at + (edit.length ?? 0));
+      }
+      version++;
+      await client.connection.sendNotification('textDocument/didChange', { textDocument: { uri, version }, contentChanges: changes });
+      const v = version;
+      const edited = await client.diagnostics(uri, (p) => p.version === v);
+      const fresh = client.open(path(`teaching-edited-fresh-${n}.pneu`), text);
+      const opened = await client.diagnostics(fresh);
+      expect(plain(edited.diagnostics), `step ${n}`).toEqual(plain(opened.diagnostics));
+      expect(await hintsOf(uri), `step ${n}`).toEqual(await hintsOf(fresh));
+      for (const method of ['textDocument/documentSymbol', 'textDocument/foldingRange']) {
+        expect(await client.connection.sendRequest(method, { textDocument: { uri } }), `step ${n} ${method}`).toEqual(await client.connection.sendRequest(method, { textDocument: { uri: fresh } }));
+      }
+      await client.connection.sendNotification('textDocument/didClose', { textDocument: { uri: fresh } });
+    }
+    // The edits did change what is seen: the pasted gas is read at its own timepoint.
+    expect((await client.diagnostics(uri, (p) => p.version === version)).diagnostics.length).toBeGreaterThan(3);
+  });
+});
