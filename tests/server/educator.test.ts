@@ -3,7 +3,7 @@
 // All patients, places and times are invented.
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import type { Hover, InlayHint } from 'vscode-languageserver-protocol';
+import type { Diagnostic, Hover, InlayHint } from 'vscode-languageserver-protocol';
 import { serverForTests } from './lsp-client';
 
 const client = serverForTests();
@@ -188,7 +188,7 @@ describe('a teaching note edited as an editor sends its edits', () => {
     let text = BASE;
     const uri = client.open(path('teaching-edited.pneu'), text);
     await client.diagnostics(uri);
-    const plain = (list: readonly { range: unknown; code?: unknown; message: string }[]) => list.map((d) => [d.range, d.code, d.message]);
+    const plain = (list: readonly Diagnostic[]) => list.map((d) => [d.range, d.code, d.message]);
     let version = 1;
     for (const [n, step] of STEPS.entries()) {
       const changes = [];
@@ -215,5 +215,28 @@ describe('a teaching note edited as an editor sends its edits', () => {
     }
     // The edits did change what is seen: the pasted gas is read at its own timepoint.
     expect((await client.diagnostics(uri, (p) => p.version === version)).diagnostics.length).toBeGreaterThan(3);
+  });
+});
+
+describe('completion at the start of a line inside a timepoint', () => {
+  it('offers the sections of a timepoint first, and says a header section written there holds from it on', async () => {
+    const text = ['patient   age 58 y', '', '@ day 1 08:00  Fenwick ward', '', ''].join('\n');
+    const uri = client.open(path('teaching-complete-in-timepoint.pneu'), text);
+    await client.diagnostics(uri);
+    const at = async (line: number) => {
+      const items = await client.connection.sendRequest<{ label: string; detail?: string; kind?: number }[]>('textDocument/completion', { textDocument: { uri }, position: { line, character: 0 } });
+      return items.filter((i) => !i.label.includes(' ')).map((i) => [i.label, i.detail]);
+    };
+    // Before the first timepoint: the header's own lines first, as before.
+    const header = await at(1);
+    expect(header.slice(0, 3).map(([label]) => label)).toEqual(['patient', 'place', 'units']);
+    expect(header[0]![1]).toBe('header line: holds for the whole note');
+    const inside = await at(3);
+    expect(inside.slice(0, 7).map(([label]) => label)).toEqual(['vitals', 'oxygen', 'abg', 'vbg', 'labs', 'vent', 'note']);
+    expect(inside.slice(7)).toEqual([
+      ['patient', 'restates a header line: holds from this timepoint on'],
+      ['place', 'restates a header line: holds from this timepoint on'],
+      ['units', 'restates a header line: holds from this timepoint on'],
+    ]);
   });
 });
