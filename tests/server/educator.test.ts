@@ -4,6 +4,7 @@
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import type { Diagnostic, Hover, InlayHint } from 'vscode-languageserver-protocol';
+import { applyEdits } from '../../server/src/core/service/text-edits';
 import { serverForTests } from './lsp-client';
 
 const client = serverForTests();
@@ -238,5 +239,38 @@ describe('completion at the start of a line inside a timepoint', () => {
       ['place', 'restates a header line: holds from this timepoint on'],
       ['units', 'restates a header line: holds from this timepoint on'],
     ]);
+  });
+});
+
+describe('converting every gas pressure of a note', () => {
+  type Edit = { range: { start: { line: number; character: number }; end: { line: number; character: number } }; newText: string };
+  async function converted(name: string, text: string, to: 'mmHg' | 'kPa'): Promise<string[]> {
+    const uri = client.open(path(name), text);
+    await client.diagnostics(uri);
+    const edits = await client.connection.sendRequest<Edit[]>('pneumark/convertUnits', { uri, to });
+    return applyEdits(text, edits).split('\n');
+  }
+
+  it('keeps trailing comments in their column', async () => {
+    const lines = await converted('teaching-convert-comments.pneu', [
+      'units     gas kPa',
+      '@ day 1 14:20  Saltmarsh emergency department',
+      'oxygen    cannula 4 L/min                       # flow turned up by the crew',
+      'abg       7.26/9.6/10.8/31                      # pH / PaCO2 / PaO2 / HCO3',
+      'abg       ph 7.28, pco2 9.1, po2 7.9            # repeat',
+      'abg       ph 7.30, pco2 8.93, po2 12.25 kPa     # with its unit',
+      '',
+    ].join('\n'), 'mmHg');
+    expect(lines[3]).toMatch(/^abg {7}7\.26\/72\/81\/31 +# pH/);
+    for (const line of [2, 3, 4, 5]) expect(lines[line]!.indexOf('#'), lines[line]).toBe(48);
+  });
+
+  it('puts a comment two spaces after content that grows past its column', async () => {
+    const lines = await converted('teaching-convert-comment-close.pneu', [
+      '@ day 1 14:20',
+      'abg       ph 7.30, pco2 67, po2 92 mmHg, hco3 31.5  # close to the comment',
+      '',
+    ].join('\n'), 'kPa');
+    expect(lines.find((l) => l.startsWith('abg'))).toMatch(/hco3 31\.5 {2}# close/);
   });
 });
