@@ -295,7 +295,8 @@ describe('convertNoteUnits', () => {
       'place     barometric 83.7',
       '@ 08:00',
       'vitals    etco2 5.1',
-      'abg       7.28/7.5/9.5/26, be -2   # first',
+      // The comment as near its column as two spaces after the longer gas allow (keepCommentColumn).
+      'abg       7.28/7.5/9.5/26, be -2  # first',
       'vbg       pco2 8.1 kPa, po2 5.2 kPa',
     ));
   });

@@ -374,7 +374,7 @@ function unknownKeyIssue(item: ItemNode, section: SectionId, line: number, lineI
   const elsewhere = elsewhereFields.flatMap((f) => f.sections);
   // A key of another line is on the wrong line, not misspelt: no key of another quantity is
   // offered for it (`hb` on a vitals line is not the heart rate `hr`), but the line's own name.
-  const usual = renamed !== null ? null : elsewhere.length > 0 ? wrongLineKeys(section, elsewhereFields) : usualKeysOf(key.text, section, lineItems, lineItems[0] === item);
+  const usual = renamed !== null ? null : elsewhere.length > 0 ? wrongLineKeys(section, elsewhereFields) : usualKeysOf(key.text, section, lineItems, lineItems[0] === item) ?? zeroForLetterO(key.text, candidates);
   const keys = renamed !== null ? { near: [renamed], setAside: false } : usual ?? settingsBeforeReadings(key.text, section, closest(key.text, candidates, Infinity));
   const near = renamed !== null || usual !== null ? keys.near : [...devices, ...keys.near].slice(0, 3);
   const lines = [...new Set(elsewhere)];
@@ -467,6 +467,21 @@ interface UsualKeys {
 
 /** Nothing offered, nothing applied unasked. */
 const NO_KEY: UsualKeys = { near: [], setAside: true };
+
+/**
+ * A key written with the digit 0 for the letter o, which look alike (`pc02`, `sp02`), is the key it
+ * spells so: offered alone, and not beside keys of other quantities as near by spelling (`fi02`,
+ * FiO2, for `pc02`: a fix that would turn a PaCO2 into an FiO2). Null where it spells no key.
+ */
+function zeroForLetterO(written: string, candidates: readonly string[]): UsualKeys | null {
+  const lower = written.toLowerCase();
+  if (!lower.includes('0')) return null;
+  const spelt = lower.replace(/0/g, 'o');
+  for (let i = 0; i < candidates.length; i++) {
+    if (candidates[i]!.toLowerCase() === spelt) return { near: [candidates[i]!], setAside: false };
+  }
+  return null;
+}
 /** What a key of another line is offered on this one (see `unknownKeyIssue`). */
 const WRONG_LINE: UsualKeys = NO_KEY;
 

@@ -15,6 +15,7 @@ import { formatAgainst, formatNumber } from '../util/format';
 import { derivedValueOf } from '../derive/registry';
 import { defineCheck, type CheckContext, type CheckDef, type TimepointContext } from './check';
 import { inHfov } from './oscillation';
+import { ADULT_FROM_YEARS } from '../physiology/adults';
 import type { Fix } from '../types';
 
 const OWN_CHECKS = new Set(['fio2']);
@@ -52,6 +53,32 @@ function usualBounds(field: FieldDef, barometricMmhg: number | null, at: Timepoi
   // An oscillator's rate is its frequency, 3–15 Hz, far above any rate of conventional breaths.
   if (field.id === 'vent_rate' && at !== null && inHfov(at)) return HFOV_USUAL_RATE_PER_MIN;
   return bounds;
+}
+
+/**
+ * Height and weight: their usual minimum is an adult's (120 cm, 25 kg), not applied to a patient
+ * under ADULT_FROM_YEARS, who is smaller (common practice, no source); the usual maximum still holds.
+ */
+function isChildSize(field: FieldDef): boolean {
+  return field.id === 'height' || field.id === 'weight';
+}
+
+/** Whether the age in force (the header's at note scope) is under ADULT_FROM_YEARS. */
+function isChildAt(ctx: CheckContext, at: TimepointContext | null): boolean {
+  let age: number | null = null;
+  if (at !== null) age = at.timepoint.values.numberOf('age');
+  else {
+    const header = ctx.analysis.timeline.header;
+    for (let i = 0; i < header.length; i++) {
+      const s = header[i]!;
+      if (s.field.id === 'age' && s.usable && s.value !== null) age = s.value;
+    }
+  }
+  return age !== null && age < ADULT_FROM_YEARS;
+}
+
+function withoutMinimum(bounds: Bounds | undefined): Bounds | undefined {
+  return bounds?.min === undefined ? bounds : bounds.max === undefined ? {} : { max: bounds.max };
 }
 
 /**
@@ -246,7 +273,7 @@ export const unusualValue = defineCheck({
   severity: 'warning',
   tags: ['plausibility'],
   doc: {
-    fires: 'A value is possible but outside the usual (soft) bounds of its field: worth a second look at the unit or the transcription. Low arterial gas pressures are not flagged where the barometric pressure is below 500 mmHg, since they are real at extreme altitude. A tidal volume is usual from 2 mL per kg of body size (the smaller of the weight and the predicted body weight in force), or from 50 mL where the note gives neither; in HFOV, which moves 1–3 mL/kg a breath, it has no usual minimum. In HFOV the set rate is the oscillation frequency, usual from 3 to 15 Hz (180–900 /min) rather than at most 60 /min: a number written bare or in /min that is such a frequency in Hz (`rate 5`) is reported with `Hz` offered; a rate written in Hz in another mode is reported where it is above 60 /min (1 Hz), with its usual maximum in both units and a word that Hz is usual in HFOV, and /min offered where the number is a whole one usual in /min (`rate 14 Hz` in VC; not `rate 1.004 Hz`, a frequency, as rates of breaths are set in whole breaths a minute). A number written in another unit than its field\'s own is compared at the precision written: `pco2 20.0 kPa` is 150.01 mmHg, yet to a tenth of a kPa it is the usual maximum of 150 mmHg, and is not reported. A saturation written as a fraction with no unit (`spo2 0.94`) is reported with the percentage offered, and is not used until it is rewritten.',
+    fires: 'A value is possible but outside the usual (soft) bounds of its field: worth a second look at the unit or the transcription. Low arterial gas pressures are not flagged where the barometric pressure is below 500 mmHg, since they are real at extreme altitude. A tidal volume is usual from 2 mL per kg of body size (the smaller of the weight and the predicted body weight in force), or from 50 mL where the note gives neither; in HFOV, which moves 1–3 mL/kg a breath, it has no usual minimum. In HFOV the set rate is the oscillation frequency, usual from 3 to 15 Hz (180–900 /min) rather than at most 60 /min: a number written bare or in /min that is such a frequency in Hz (`rate 5`) is reported with `Hz` offered; a rate written in Hz in another mode is reported where it is above 60 /min (1 Hz), with its usual maximum in both units and a word that Hz is usual in HFOV, and /min offered where the number is a whole one usual in /min (`rate 14 Hz` in VC; not `rate 1.004 Hz`, a frequency, as rates of breaths are set in whole breaths a minute). A number written in another unit than its field\'s own is compared at the precision written: `pco2 20.0 kPa` is 150.01 mmHg, yet to a tenth of a kPa it is the usual maximum of 150 mmHg, and is not reported. A saturation written as a fraction with no unit (`spo2 0.94`) is reported with the percentage offered, and is not used until it is rewritten. The usual minimum of height and weight is an adult\'s: it is not applied to a patient under 18 years (the age in force), whose usual maximum still is.',
     example: 'vitals hr 236',
     fix: 'Confirm the value; if it is right, the warning can stay (or the check can be switched off in settings). Where the number is usual in the field\'s other unit (`vt 0.45 mL`, meant as L), a quick fix writes that unit.',
   },
@@ -271,7 +298,7 @@ export const unusualValue = defineCheck({
     // A tidal volume per kg of PBW has bounds of its own (PN325).
     if (OWN_CHECKS.has(field.id) || !stated.usable || stated.readUnit === null || stated.readUnit === PER_KG_PBW || stated.unitDoubt) return;
     if (field.hard && outOfBounds(stated, field.hard)) return;
-    const soft = usualBounds(field, barometricMmhg, at);
+    const soft = isChildSize(field) && isChildAt(ctx, at) ? withoutMinimum(usualBounds(field, barometricMmhg, at)) : usualBounds(field, barometricMmhg, at);
     // A number written in another unit is compared at the precision written: 20.0 kPa is PaCO2's usual 150 mmHg.
     if (!outOfBounds(stated, soft) || (stated.value !== null && withinAsWritten(stated.value, soft, field, stated.readUnit, stated.item.number === null ? null : stated.item.value?.text ?? null))) return;
     // A unit written in which the number is usual (`vt 0.45 mL`, meant as L) is offered, not preferred:

@@ -22,6 +22,7 @@ import { ADULT_FROM_YEARS, defineDerived, withDecimals, type DeriveContext, type
 import { decimalsAgainst, formatNumber, formatShort } from '../util/format';
 import { SEA_LEVEL_MMHG, pressureFitsAltitude } from './atmosphere';
 import type { Settings } from '../settings';
+import { ABOVE_INSPIRED_BECAUSE } from './model';
 
 /** PaO2 above alveolar PO2 by more than this (mmHg) is impossible rather than rounding. */
 export const ALVEOLAR_ROUNDING_MMHG = 5;
@@ -54,16 +55,32 @@ export function allowanceAt(c: DeriveContext): number {
 
 /** A value read from a PaO2 above the alveolar PO2 (PN401) is withheld, as the A–a gradient and the readings are. */
 const ABOVE_ALVEOLAR: Outcome = { kind: 'na', reason: 'PaO2 is above the alveolar PO2 (see PN401)', withheldBy: 'PN401' };
+/** The same where no alveolar PO2 is worked out (no usable PaCO2) and the PaO2 is above the inspired PO2. */
+const ABOVE_INSPIRED: Outcome = { kind: 'na', reason: ABOVE_INSPIRED_BECAUSE, withheldBy: 'PN401' };
+
+/**
+ * Whether a PaO2 is above the inspired PO2 by more than rounding, where no alveolar PO2 is worked
+ * out (no usable PaCO2): the alveolar PO2 is the inspired PO2 less a PaCO2 term that is never
+ * negative, by either form of the alveolar gas equation, so such a PaO2 cannot be either (PN401).
+ * Source: `alveolar-gas-equation`.
+ */
+export function isAboveInspiredAt(c: DeriveContext, pao2Mmhg: number): boolean {
+  if (c.derivedValue('pao2_alveolar') !== null) return false;
+  const pi = c.derivedValue('pio2');
+  return pi !== null && isAboveAlveolar(pao2Mmhg, pi.value);
+}
 
 /**
  * `ABOVE_ALVEOLAR` when the PaO2 in force is above the alveolar PO2 the FiO2, pressure and PaCO2
- * allow (by more than rounding; always where the alveolar PO2 comes out negative), else null:
+ * allow (by more than rounding; always where the alveolar PO2 comes out negative), and
+ * `ABOVE_INSPIRED` when, with no alveolar PO2 worked out, it is above the inspired PO2; else null:
  * whatever is computed from that PaO2 (P/F, a/A, the oxygenation index, CaO2) would rest on a value
  * that cannot be.
  */
 export function pao2Withheld(c: DeriveContext, pa: Term): Outcome | null {
   const pA = c.derivedValue('pao2_alveolar');
-  return pA !== null && isAboveAlveolar(pa.value, pA.value, allowanceAt(c)) ? ABOVE_ALVEOLAR : null;
+  if (pA === null) return isAboveInspiredAt(c, pa.value) ? ABOVE_INSPIRED : null;
+  return isAboveAlveolar(pa.value, pA.value, allowanceAt(c)) ? ABOVE_ALVEOLAR : null;
 }
 
 export const pao2Alveolar = defineDerived({

@@ -13,10 +13,10 @@ import type { StatedValue } from '../analysis/model';
 import { classification } from './acid-base';
 import { GAS_KPA, GAS_MMHG, GasWords, offThreshold } from './gas-words';
 import { readVenous } from './venous';
-import { allowanceAt, isAboveAlveolar, isUnderAdultAge } from './gas-exchange';
+import { allowanceAt, isAboveAlveolar, isAboveInspiredAt, isUnderAdultAge } from './gas-exchange';
 import { SEA_LEVEL_MMHG } from './atmosphere';
 import { ADULT_FROM_YEARS, type DeriveContext, type Term } from './context';
-import type { AcidBaseFinding, DerivedValue, Interpretation, InterpretationTopic } from './model';
+import { ABOVE_INSPIRED_BECAUSE, type AcidBaseFinding, type DerivedValue, type Interpretation, type InterpretationTopic } from './model';
 import { NONE } from '../util/lists';
 import { fieldById } from '../fields/registry';
 import type { SectionId } from '../fields/sections';
@@ -96,6 +96,7 @@ class Reading implements Interpretation {
 // The fields and derived values each reading rests on: one list each, shared by every gas.
 const BASIS_PAO2: readonly string[] = ['pao2'];
 const BASIS_PAO2_ALVEOLAR: readonly string[] = ['pao2', 'pao2_alveolar'];
+const BASIS_PAO2_INSPIRED: readonly string[] = ['pao2', 'pio2'];
 const BASIS_PAO2_PF: readonly string[] = ['pao2', 'pf_ratio'];
 const BASIS_PACO2: readonly string[] = ['paco2'];
 const BASIS_GASES: readonly string[] = ['pao2', 'paco2'];
@@ -109,6 +110,8 @@ const BASIS_NONE: readonly string[] = [];
 
 /** Why nothing is read from a PaO2 above the alveolar PO2 (PN401). */
 const NOT_READ = 'the FiO2, pressure, PaCO2 and PaO2 stated cannot go together (see PN401)';
+/** The same where no PaCO2 is used: the PaO2 is above the inspired PO2. */
+const NOT_READ_INSPIRED = ABOVE_INSPIRED_BECAUSE;
 
 /**
  * The gas at one timepoint as its readings see it: the values, what they are compared with, and
@@ -128,8 +131,10 @@ class GasFacts {
   readonly onOxygen: boolean;
   /** An oxygen device in force whose FiO2 is not stated (a cannula, a mask): oxygen, amount unknown. */
   readonly oxygenDevice: string | null;
-  /** A PaO2 above the alveolar PO2 the FiO2, pressure and PaCO2 allow (PN401). */
+  /** A PaO2 above the alveolar PO2 the FiO2, pressure and PaCO2 allow, or above the inspired PO2 where no PaCO2 is used (PN401). */
   readonly impossible: boolean;
+  /** The second case of `impossible`: no alveolar PO2 is worked out, and the PaO2 is above the inspired PO2. */
+  readonly aboveInspired: boolean;
   /** Set by the oxygenation reading: the P/F, and the Berlin band's P/F, PEEP and boundary. */
   pf: DerivedValue | null = null;
   bandPf: DerivedValue | null = null;
@@ -162,7 +167,8 @@ class GasFacts {
     // One of the FiO2, pressure, PaCO2 and PaO2 is wrong, so nothing is read from the PaO2 until the
     // note is mended (as PN402 holds the acid–base reading).
     const alveolar = pao2 ? c.derivedValue('pao2_alveolar') : null;
-    this.impossible = pao2 !== null && alveolar !== null && isAboveAlveolar(pao2.value, alveolar.value, allowanceAt(c));
+    this.aboveInspired = pao2 !== null && alveolar === null && isAboveInspiredAt(c, pao2.value);
+    this.impossible = this.aboveInspired || (pao2 !== null && alveolar !== null && isAboveAlveolar(pao2.value, alveolar.value, allowanceAt(c)));
   }
 }
 
@@ -215,7 +221,7 @@ function readOxygenation(g: GasFacts, out: Interpretation[]): void {
   const { c, settings, pao2, fio2 } = g;
   if (pao2 === null) return;
   if (g.impossible) {
-    out.push(new Reading('oxygenation', BASIS_PAO2_ALVEOLAR, g, false, oxygenationNotReadText));
+    out.push(new Reading('oxygenation', g.aboveInspired ? BASIS_PAO2_INSPIRED : BASIS_PAO2_ALVEOLAR, g, false, oxygenationNotReadText));
     return;
   }
   const pf = (g.pf = c.derivedValue('pf_ratio'));
@@ -272,7 +278,7 @@ function boundaryOn(pf: number, resolution: number): number | undefined {
 function readRespiratoryFailure(g: GasFacts, out: Interpretation[]): void {
   const { pao2, paco2, hypoxaemic, hypercapnic } = g;
   if (pao2 === null || paco2 === null) return;
-  if (g.impossible) out.push(new Reading('respiratory-failure', BASIS_GASES_ALVEOLAR, g, false, `Respiratory failure not read: ${NOT_READ}.`));
+  if (g.impossible) out.push(new Reading('respiratory-failure', g.aboveInspired ? BASIS_PAO2_INSPIRED : BASIS_GASES_ALVEOLAR, g, false, `Respiratory failure not read: ${g.aboveInspired ? NOT_READ_INSPIRED : NOT_READ}.`));
   // Neither hypoxaemia nor hypercapnia (the usual gas): no respiratory failure reading.
   else if (hypoxaemic && hypercapnic) out.push(new Reading('respiratory-failure', BASIS_GASES, g, true, type2Text));
   else if (hypoxaemic) out.push(new Reading('respiratory-failure', BASIS_GASES, g, true, type1Text));
@@ -289,7 +295,7 @@ function readRespiratoryFailure(g: GasFacts, out: Interpretation[]): void {
 // only where the reading checks above chose it (so `pao2`, `paco2`, `fio2`… are there when used).
 
 function oxygenationNotReadText(g: GasFacts): string {
-  return `PaO2 ${g.gas.measured(g.pao2!.value, g.o2Resolution)}: oxygenation not read, as ${NOT_READ}.`;
+  return `PaO2 ${g.gas.measured(g.pao2!.value, g.o2Resolution)}: oxygenation not read, as ${g.aboveInspired ? NOT_READ_INSPIRED : NOT_READ}.`;
 }
 
 /** The PaO2 with the decimals that keep it on its side of the thresholds named. */

@@ -102,9 +102,15 @@ export const WITHHELD_BECAUSE: Readonly<Record<string, string>> = {
   PN312: 'the set rate of 0 cannot be right in a mode that delivers mandatory breaths, and no rate is measured (see PN312)',
 };
 
+/**
+ * Why values are withheld where no alveolar PO2 is worked out (no usable PaCO2) and the PaO2 is
+ * above the inspired PO2 (PN401): the reason of such an outcome, said as it is.
+ */
+export const ABOVE_INSPIRED_BECAUSE = 'the PaO2 is above the inspired PO2 that the FiO2 and pressure in force allow, which the alveolar PO2 never exceeds (see PN401)';
+
 /** `withheld: the PaO2 is above … (see PN401)`, or the reason itself for a finding not listed. */
 export function withheldText(n: NotApplicable): string {
-  return n.withheldBy !== null ? WITHHELD_BECAUSE[n.withheldBy] ?? n.reason : n.reason;
+  return n.withheldBy !== null && n.reason !== ABOVE_INSPIRED_BECAUSE ? WITHHELD_BECAUSE[n.withheldBy] ?? n.reason : n.reason;
 }
 
 export type InterpretationTopic = 'oxygenation' | 'oxygenation-band' | 'ventilation' | 'respiratory-failure' | 'hypoxaemia-mechanism' | 'acid-base' | 'venous';

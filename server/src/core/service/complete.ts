@@ -43,14 +43,19 @@ const KIND_DETAIL: Readonly<Record<SectionDef['kind'], string>> = {
   prose: 'free text',
 };
 
+/** What a header section offered inside a timepoint is: a restatement, from there on. */
+const RESTATED_HEADER_DETAIL = 'restates a header line: holds from this timepoint on';
+
 export function completionsAt(result: NoteResult, position: Position): CompletionInfo[] {
   if (!isValidPosition(position)) return [];
   const node = lineAt(result, position.line);
   if (!node || position.character > node.text.length) return [];
-  return keepNextWord(node, position.character, completionsOnLine(node, position, (field) => firstUnitOf(result, position.line, field)));
+  const first = result.analysis.timeline.timepoints[0];
+  const inTimepoint = first !== undefined && position.line > first.startLine;
+  return keepNextWord(node, position.character, completionsOnLine(node, position, (field) => firstUnitOf(result, position.line, field), inTimepoint));
 }
 
-function completionsOnLine(node: LineNode, position: Position, firstUnit: FirstUnit): CompletionInfo[] {
+function completionsOnLine(node: LineNode, position: Position, firstUnit: FirstUnit, inTimepoint: boolean): CompletionInfo[] {
   const text = node.text;
   const ch = position.character;
   const hash = text.indexOf('#');
@@ -68,7 +73,7 @@ function completionsOnLine(node: LineNode, position: Position, firstUnit: FirstU
 
   if (!first) {
     const restOfLine = text.slice(wordEnd).trim();
-    return narrow(lineStartCompletions(restOfLine === '', lineRange(line, wordStart, wordEnd)), typed);
+    return narrow(lineStartCompletions(restOfLine === '', lineRange(line, wordStart, wordEnd), inTimepoint), typed);
   }
   if (first.text.startsWith('@')) {
     // A time written after the cursor (`@ |day 1 08:00`, `@ day 1 |08:00`) stays as it is: a
@@ -256,11 +261,17 @@ function leadDeviceCompletions(text: string, leadStart: number, ch: number, repl
 
 // ── what is offered ─────────────────────────────────────────────────────
 
-function lineStartCompletions(emptyRest: boolean, replace: Range): CompletionInfo[] {
-  const sections: CompletionInfo[] = SECTIONS.map((s) => ({
+/**
+ * The sections, then the snippets. Inside a timepoint (below its `@` line) the timepoint's own
+ * sections come first, and a header section (a place the patient moved to, a weight taken again)
+ * is said to hold from there on.
+ */
+function lineStartCompletions(emptyRest: boolean, replace: Range, inTimepoint: boolean): CompletionInfo[] {
+  const ordered = inTimepoint ? [...SECTIONS.filter((s) => s.kind !== 'header'), ...SECTIONS.filter((s) => s.kind === 'header')] : SECTIONS;
+  const sections: CompletionInfo[] = ordered.map((s) => ({
     label: s.id,
     kind: 'section',
-    detail: KIND_DETAIL[s.kind],
+    detail: inTimepoint && s.kind === 'header' ? RESTATED_HEADER_DETAIL : KIND_DETAIL[s.kind],
     documentation: s.description,
     insertText: emptyRest ? `${s.id.padEnd(ITEM_COLUMN - 1)} ` : s.id,
     replace,

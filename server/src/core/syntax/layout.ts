@@ -54,3 +54,32 @@ export function renameKeepingColumns(text: string, span: Span, newText: string):
     : { span: { start: contentEnd, end: contentEnd + gap - wanted }, newText: '' };
   return [rename, blanks];
 }
+
+/**
+ * The edit of blanks that keeps the trailing comment of the line `text` in its column once `edits`
+ * (replacements within that line, none of them from the comment on) are made: a comment set at
+ * least two spaces after the content stays where it was while the content still ends at least two
+ * columns before it, else comes two spaces after the content, as `renameKeepingColumns` keeps it.
+ * Null where nothing is to change: no such comment, or the edits leave it in its column.
+ */
+export function keepCommentColumn(text: string, edits: readonly LineEdit[]): LineEdit | null {
+  const comment = text.indexOf('#');
+  if (comment < 0 || edits.length === 0) return null;
+  let lastEnd = 0;
+  let change = 0;
+  for (const e of edits) {
+    if (e.span.end > comment || e.span.start > comment) return null;
+    lastEnd = Math.max(lastEnd, e.span.end);
+    change += e.newText.length - (e.span.end - e.span.start);
+  }
+  let contentEnd = comment;
+  while (contentEnd > lastEnd && text.charCodeAt(contentEnd - 1) === SPACE) contentEnd--;
+  const gap = comment - contentEnd;
+  // A gap that is not all plain spaces (a tab before them) stops short of the content: left as it is.
+  if (gap < COMMENT_GAP || (contentEnd > lastEnd && /\s/.test(text.charAt(contentEnd - 1)))) return null;
+  const wanted = Math.max(COMMENT_GAP, gap - change);
+  if (wanted === gap) return null;
+  return wanted > gap
+    ? { span: { start: contentEnd, end: contentEnd }, newText: ' '.repeat(wanted - gap) }
+    : { span: { start: contentEnd, end: contentEnd + gap - wanted }, newText: '' };
+}
