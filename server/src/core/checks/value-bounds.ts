@@ -6,6 +6,7 @@
 import { softBoundsAt, unitsWithin, within, withinAsWritten } from '../analysis/bounds';
 import type { StatedValue } from '../analysis/model';
 import { PER_KG_PBW } from '../analysis/per-kg-volume';
+import { ADULT_FROM_YEARS } from '../physiology/adults';
 import type { Bounds, FieldDef } from '../fields/registry';
 import { displayUnit, isSaturationFraction } from '../analysis/read-value';
 import { decimalsFor, readUnitName, writtenDecimals } from '../present';
@@ -246,7 +247,7 @@ export const unusualValue = defineCheck({
   severity: 'warning',
   tags: ['plausibility'],
   doc: {
-    fires: 'A value is possible but outside the usual (soft) bounds of its field: worth a second look at the unit or the transcription. Low arterial gas pressures are not flagged where the barometric pressure is below 500 mmHg, since they are real at extreme altitude. A tidal volume is usual from 2 mL per kg of body size (the smaller of the weight and the predicted body weight in force), or from 50 mL where the note gives neither; in HFOV, which moves 1–3 mL/kg a breath, it has no usual minimum. In HFOV the set rate is the oscillation frequency, usual from 3 to 15 Hz (180–900 /min) rather than at most 60 /min: a number written bare or in /min that is such a frequency in Hz (`rate 5`) is reported with `Hz` offered; a rate written in Hz in another mode is reported where it is above 60 /min (1 Hz), with its usual maximum in both units and a word that Hz is usual in HFOV, and /min offered where the number is a whole one usual in /min (`rate 14 Hz` in VC; not `rate 1.004 Hz`, a frequency, as rates of breaths are set in whole breaths a minute). A number written in another unit than its field\'s own is compared at the precision written: `pco2 20.0 kPa` is 150.01 mmHg, yet to a tenth of a kPa it is the usual maximum of 150 mmHg, and is not reported. A saturation written as a fraction with no unit (`spo2 0.94`) is reported with the percentage offered, and is not used until it is rewritten.',
+    fires: 'A value is possible but outside the usual (soft) bounds of its field: worth a second look at the unit or the transcription. Low arterial gas pressures are not flagged where the barometric pressure is below 500 mmHg, since they are real at extreme altitude. A child\'s height and weight (an age under 18 years in force) are not read against the usual ranges, which are an adult\'s (their impossible bounds still hold). A tidal volume is usual from 2 mL per kg of body size (the smaller of the weight and the predicted body weight in force), or from 50 mL where the note gives neither; in HFOV, which moves 1–3 mL/kg a breath, it has no usual minimum. In HFOV the set rate is the oscillation frequency, usual from 3 to 15 Hz (180–900 /min) rather than at most 60 /min: a number written bare or in /min that is such a frequency in Hz (`rate 5`) is reported with `Hz` offered; a rate written in Hz in another mode is reported where it is above 60 /min (1 Hz), with its usual maximum in both units and a word that Hz is usual in HFOV, and /min offered where the number is a whole one usual in /min (`rate 14 Hz` in VC; not `rate 1.004 Hz`, a frequency, as rates of breaths are set in whole breaths a minute). A number written in another unit than its field\'s own is compared at the precision written: `pco2 20.0 kPa` is 150.01 mmHg, yet to a tenth of a kPa it is the usual maximum of 150 mmHg, and is not reported. A saturation written as a fraction with no unit (`spo2 0.94`) is reported with the percentage offered, and is not used until it is rewritten.',
     example: 'vitals hr 236',
     fix: 'Confirm the value; if it is right, the warning can stay (or the check can be switched off in settings). Where the number is usual in the field\'s other unit (`vt 0.45 mL`, meant as L), a quick fix writes that unit.',
   },
@@ -257,6 +258,8 @@ export const unusualValue = defineCheck({
     // first. A tidal volume's usual minimum follows the body size, which may raise it, and a set
     // rate's the mode (HFOV): asked on.
     if (!field.soft || (!outOfBounds(stated, field.soft) && field.id !== 'vt' && field.id !== 'vent_rate')) return;
+    // The usual height and weight are an adult's: a child's are not read against them.
+    if (ADULT_BODY_SIZE.has(field.id) && isChild(ctx, at)) return;
     if (stated.value !== null && stated.item.number !== null && isSaturationFraction(field, stated.item.number, stated.item)) {
       const written = stated.item.value!;
       const percent = formatNumber(stated.item.number * 100, Math.max(0, writtenDecimals(written.text) - 2));
@@ -290,6 +293,32 @@ export const unusualValue = defineCheck({
     });
   }),
 });
+
+/**
+ * Fields whose usual (soft) bounds in the field registry are an adult's: height 120–220 cm and
+ * weight 25–250 kg. A child's height and weight are ordinary far below them (a toddler of 86 cm and
+ * 12 kg: common practice, no source), so they are not reported as unusual for a patient under
+ * ADULT_FROM_YEARS, the age from which Pneumark applies rules made in adults; the hard bounds hold.
+ */
+const ADULT_BODY_SIZE = new Set(['height', 'weight']);
+
+/**
+ * Whether the patient is a child (an age under ADULT_FROM_YEARS): at a timepoint, by the age in
+ * force there; in the header, by the last age the header states (a line may give the age after the
+ * height, or a later header line give it).
+ */
+function isChild(ctx: CheckContext, at: TimepointContext | null): boolean {
+  const age = at !== null ? at.timepoint.values.numberOf('age') : headerAge(ctx.analysis.timeline.header);
+  return age !== null && age < ADULT_FROM_YEARS;
+}
+
+function headerAge(header: readonly StatedValue[]): number | null {
+  for (let i = header.length - 1; i >= 0; i--) {
+    const s = header[i]!;
+    if (s.fieldId === 'age' && s.usable && s.value !== null) return s.value;
+  }
+  return null;
+}
 
 export const saturationAbove100 = defineCheck({
   code: 'PN306',
