@@ -218,6 +218,8 @@ describe('08: a gas with no oxygen written', () => {
     const d = derivation(text('08-no-fio2-dka'), {}, 0);
     expect(d.derived.map((x) => x.id)).not.toContain('pf_ratio');
     expect(d.missing.map((m) => JSON.stringify(m)).join(' ')).toContain('fio2');
+    // The low PaCO2 is the response to the acidosis, within Winters' 13.65–17.65 mmHg.
+    expect(d.interpretations.find((i) => i.topic === 'ventilation')!.text).toBe('PaCO2 16 mmHg: consistent with hypocapnia (below 35 mmHg): the breathing\'s response to the metabolic acidosis (the acid–base reading compares it with the response expected).');
   });
 });
 
