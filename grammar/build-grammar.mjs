@@ -361,12 +361,38 @@ function shorthandLead(units, keys) {
   return ['(?:', leadGap, '(?:', cap(shorthand, SHORTHAND), groupTail(units, keys), '|', cap(shorthand, SHORTHAND_SPACED), groupTail(units, keys), '))?'];
 }
 
+/**
+ * The unit spellings that one key of the section alone takes (`L/min` on an oxygen line, the
+ * flow's), as the parser tells them (`onlyKeyTaking`): a number with such a unit after blanks and
+ * no key is one stray text, its unit included (`oxygen 4 L/min`). Spellings are compared without
+ * case, as the parser looks them up; null where there is none.
+ */
+function unitsOfOneKey(FIELDS, UNITS, sectionId) {
+  if (sectionId === null) return null;
+  const fold = (s) => s.toLowerCase().replace(/\s+/g, ' ');
+  const unitsOf = new Map();
+  for (const u of UNITS) for (const spelling of [u.id, ...u.aliases]) {
+    const key = fold(spelling);
+    unitsOf.set(key, [...(unitsOf.get(key) ?? []), u.id]);
+  }
+  const out = [];
+  for (const u of UNITS) for (const spelling of [u.id, ...u.aliases]) {
+    const ids = unitsOf.get(fold(spelling));
+    const owners = FIELDS.filter((f) => f.sections.includes(sectionId) && ids.some((id) => f.units?.includes(id)));
+    if (owners.length === 1) out.push(spelling);
+  }
+  return out.length === 0 ? null : alt(out);
+}
+
 /** Values written where no key comes before them (the parser reports them), or a misplaced shorthand. */
-function strayRules(gas, units) {
+function strayRules(gas, units, keys, owned) {
   const slash = assemble(START, cap(STRAY, gas ? SHORTHAND : PAIR), END);
   // The number keeps its scope, with the stray scope innermost so that themes show it as invalid.
-  // The parser reports the whole chunk, a unit glued to the number included (`80mmHg`, `0.0/1e3`).
-  const number = assemble(START, cap(strayNumber, NUM), '(?:', cap({ name: `${sc('keyword.other.unit')} ${sc(STRAY)}` }, units.glued), END, '|', cap(STRAY, `[^\\s,#]${CHUNK_REST}`), ')?');
+  // The parser reports the whole chunk, a unit glued to the number included (`80mmHg`, `0.0/1e3`),
+  // and a unit after blanks that one key of the section alone takes (`4 L/min` on an oxygen line).
+  const strayUnit = { name: `${sc('keyword.other.unit')} ${sc(STRAY)}` };
+  const spacedOwned = owned === null ? [] : ['|\\s+', `(?!${keys}${END}\\s+${NUM_START})`, cap(strayUnit, owned), VALUE_END];
+  const number = assemble(START, cap(strayNumber, NUM), '(?:', cap(strayUnit, units.glued), END, '|', cap(STRAY, `[^\\s,#]${CHUNK_REST}`), ...spacedOwned, ')?');
   const punctuation = assemble(START, `(?!${NUM_START})(?!${KEY_START})`, cap(STRAY, `[^\\s,#]${CHUNK_REST}`), VALUE_END);
   return [
     {
@@ -482,7 +508,7 @@ function wordItemRule(field, sectionKeys) {
   };
 }
 
-function itemPatterns({ FIELDS }, sectionId, units) {
+function itemPatterns({ FIELDS, UNITS }, sectionId, units) {
   const keys = alt(keysOf(FIELDS, sectionId));
   const gas = sectionId === 'abg' || sectionId === 'vbg';
   const wordFields = FIELDS.filter((f) => f.kind === 'word' && sectionId !== null && f.sections.includes(sectionId));
@@ -492,7 +518,7 @@ function itemPatterns({ FIELDS }, sectionId, units) {
     { include: '#item-separator' },
     { include: '#full-stop' },
     strayBracketRule(units, keys),
-    ...strayRules(gas, units),
+    ...strayRules(gas, units, keys, unitsOfOneKey(FIELDS, UNITS, sectionId)),
     ...wordFields.map((f) => wordItemRule(f, keys)),
     ...(pairKeys.length > 0 ? [bracketedMeanRule(alt(pairKeys), units, keys), spacedPairRule(alt(pairKeys), units, keys)] : []),
     keyValueRule(units, keys),
@@ -627,7 +653,7 @@ export function buildGrammar({ SECTIONS, FIELDS, UNITS, BLANKS }) {
       name: sc(`meta.line.${section.id}`),
       patterns: [{ include: `#${itemsName}` }],
     };
-    repository[itemsName] = { patterns: itemPatterns({ FIELDS }, section.id, units) };
+    repository[itemsName] = { patterns: itemPatterns({ FIELDS, UNITS }, section.id, units) };
   }
 
   patterns.push({ include: '#unknown-line' });

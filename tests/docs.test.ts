@@ -350,6 +350,11 @@ const SPEC_LINES: Readonly<Record<string, readonly string[] | { readonly on: str
   'hr 118 rr 26': [],
   'hr 118, rr 26': [],
   'hr 80 / 90': ['PN105', 'PN105'],
+  // A number with a unit and no key: one finding, the key offered where one key of the section alone takes the unit.
+  'oxygen 4 L/min': ['PN105'],
+  'vent 450 mL': ['PN105'],
+  'flow 4 L/min': [],
+  'vent 5 cmH2O': ['PN105', 'PN201'],
   'hr 88 120': ['PN105'],
   'mode VC.': ['PN105'],
   'hr 80. rr 18': ['PN202'],
@@ -394,8 +399,8 @@ const SPEC_LINES: Readonly<Record<string, readonly string[] | { readonly on: str
   'oxygen venturi 28, fio2 0.35': ['PN206'],
   'oxygen hfnc 60 %': ['PN323'],
   'oxygen hfnc 40 L/min 60 %': ['PN323'],
-  'oxygen hfnc, 40 L/min': ['PN105', 'PN201'],
-  'oxygen mask, 8 L/min': ['PN105', 'PN201'],
+  'oxygen hfnc, 40 L/min': ['PN105'],
+  'oxygen mask, 8 L/min': ['PN105'],
   'oxygen hfnc 40 L/min, 60 %': ['PN105'],
   // Two lines of one timepoint: the quoted line checked with the line the text puts beside it.
   'oxygen venturi 28': { on: 'oxygen venturi 28\noxygen fio2 0.28', codes: [] },

@@ -7,7 +7,7 @@ import { checkNote } from '../../server/src/core/check-note';
 import { CHECKS } from '../../server/src/core/checks/registry';
 import { codesByLine, expectationsOf, fixtureFiles } from '../helpers/expectations';
 
-const fixtures = fixtureFiles('tests/fixtures', 'samples');
+const fixtures = fixtureFiles('tests/fixtures', 'tests/fixtures/bedside', 'samples');
 
 describe('fixture notes carry their expected findings', () => {
   for (const { path, text } of fixtures) {

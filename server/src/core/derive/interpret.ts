@@ -367,6 +367,21 @@ function bandWords(band: BerlinOxygenationBand, range: string): string {
   return `: consistent with the ${range} mmHg oxygenation band of the Berlin definition (the band called ${BERLIN_BAND_SEVERITY[band]} there) — an oxygenation band, not a diagnosis.`;
 }
 
+/**
+ * A low PaCO2 in a primary metabolic acidosis is the breathing's response to it (Winters' formula
+ * expects it: Albert, Dell & Winters 1967), not ventilation above need: so the ventilation reading
+ * says where the acid–base reading finds such an acidosis with its response as expected or short of
+ * it. Where the PaCO2 is below what the acidosis calls for (an added respiratory alkalosis
+ * suspected), the ventilation is above it, and the words say so as before. The acid–base finding is
+ * set on the facts after this reading is made, and read when its text is first asked for.
+ */
+function respondsToMetabolicAcidosis(g: GasFacts): boolean {
+  const finding = g.acidBase;
+  return finding !== null && finding.primary === 'metabolic-acidosis' && finding.suspected !== 'respiratory-alkalosis';
+}
+
+const RESPONSE_TO_ACIDOSIS = 'the breathing\'s response to the metabolic acidosis (the acid–base reading compares it with the response expected)';
+
 function ventilationText(g: GasFacts): string {
   const { gas, settings, co2Resolution } = g;
   const v = g.paco2!.value;
@@ -376,7 +391,7 @@ function ventilationText(g: GasFacts): string {
     : sideOf(v, UPPER_NORMAL_PACO2_MMHG, co2Resolution) > 0
       ? `consistent with a mildly raised PaCO2, ${sideOf(v, hypercapniaAt, co2Resolution) === 0 ? `at the hypercapnia threshold of ${gas.on(hypercapniaAt, co2Resolution)}, not above it` : `below the hypercapnia threshold of ${gas.threshold(hypercapniaAt, v)}`}`
       : sideOf(v, settings.hypocapniaBelowMmhg, co2Resolution) < 0
-        ? `consistent with hypocapnia (below ${gas.threshold(settings.hypocapniaBelowMmhg, v)}): ventilation above metabolic need`
+        ? `consistent with hypocapnia (below ${gas.threshold(settings.hypocapniaBelowMmhg, v)}): ${respondsToMetabolicAcidosis(g) ? RESPONSE_TO_ACIDOSIS : 'ventilation above metabolic need'}`
         : 'consistent with normal ventilation';
   return `PaCO2 ${gas.measured(v, co2Resolution, hypercapniaAt, UPPER_NORMAL_PACO2_MMHG, settings.hypocapniaBelowMmhg)}: ${text}.`;
 }

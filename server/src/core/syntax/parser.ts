@@ -1740,6 +1740,58 @@ function percentAfterFlowIssue(source: string, start: number, end: number, devic
   };
 }
 
+/**
+ * The canonical key of the one field of `section` that takes the unit spelt `unitText`, or null
+ * where none does or several do (`cmH2O` on a vent line: PEEP, plateau, peak...). A unit names its
+ * field only where no other field of the section takes it: `L/min` on an oxygen line is the flow,
+ * `mL` on a vent line the tidal volume. Memoised by section and spelling (a bounded set: the
+ * spellings looked up are known units).
+ */
+function onlyKeyTaking(section: SectionId, unitText: string): string | null {
+  const units = unitsForSpelling(unitText);
+  if (units.length === 0) return null;
+  const memoKey = `${section} ${unitText}`;
+  const known = KEY_OF_UNIT.get(memoKey);
+  if (known !== undefined) return known;
+  let owner: FieldDef | null = null;
+  let several = false;
+  for (const field of FIELDS) {
+    if (!field.sections.includes(section) || !units.some((u) => field.units?.includes(u.id) === true)) continue;
+    if (owner !== null) several = true;
+    owner = field;
+  }
+  const key = several || owner === null ? null : owner.aliases[0]!;
+  KEY_OF_UNIT.set(memoKey, key);
+  return key;
+}
+
+const KEY_OF_UNIT = new Map<string, string | null>();
+
+/**
+ * A number with its unit and no key, where the unit is taken by one key of the section alone
+ * (`onlyKeyTaking`): one finding over both, not one for the number and another for its unit read as
+ * an unknown key, with a fix that writes that key before the number.
+ */
+function keyOfUnitIssue(source: string, start: number, end: number, key: string, alreadyRead: boolean): SyntaxIssue {
+  const written = source.slice(start, end);
+  // Where the line already gives that key (`hfnc 40 L/min 50 L/min`: a second flow), the number is
+  // not read, and writing the key would state it twice: offered, not preferred.
+  return {
+    check: 'stray-text',
+    span: { start, end },
+    message: alreadyRead
+      ? `\`${written}\` has no key and is not read: the only key of this line that takes its unit is \`${key}\`, which the line already gives.`
+      : `\`${written}\` has no key; the only key of this line that takes its unit is \`${key}\`: write \`${key} ${written}\`.`,
+    fixes: [{ title: `Write \`${key} ${written}\``, edits: [{ span: { start, end: start }, newText: `${key} ` }], ...(alreadyRead ? {} : { preferred: true }) }],
+  };
+}
+
+/** Whether one of the first `count` items read on the line holds the key `key` (canonical). */
+function keyRead(items: readonly (Item | undefined)[], count: number, key: string): boolean {
+  for (let k = 0; k < count; k++) if (items[k]!.keyName === key) return true;
+  return false;
+}
+
 /** `source` is the text of the line (spans and numbers' texts refer to it). */
 function parseItems(section: SectionId, chunks: readonly Word[], start: number, issues: SyntaxIssue[], source: string): readonly ItemNode[] {
   let i = start;
@@ -1871,6 +1923,18 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
         const unit = length > 0 ? unitAfter(gluedUnit(chunk, length), chunks, i + 1, section, source) : null;
         if (isPercent(unit)) {
           issues.push(chunk.afterComma ? percentAfterCommaIssue(source, chunk.start, unit!.end, deviceOf(items, count)) : percentAfterFlowIssue(source, chunk.start, unit!.end, deviceOf(items, count)!));
+          i += 1 + UNIT_CHUNKS;
+          continue;
+        }
+      }
+      // `oxygen 4 L/min`, `vent 450 mL`: a number with a unit and no key, where one key of the
+      // section alone takes that unit, is one finding over both, with a fix that writes that key.
+      const ownedLength = numberChunk(chunk);
+      if (ownedLength > 0) {
+        const unit = unitAfter(gluedUnit(chunk, ownedLength), chunks, i + 1, section, source);
+        const owner = unit === null ? null : onlyKeyTaking(section, unit.text);
+        if (owner !== null) {
+          issues.push(keyOfUnitIssue(source, chunk.start, unit!.end, owner, keyRead(items, count, owner)));
           i += 1 + UNIT_CHUNKS;
           continue;
         }
