@@ -123,7 +123,7 @@ export function defineDerived(def: DerivedDef): DerivedDefinition {
 const shownFormulas = new Map<string, string>();
 
 /** A formula template without its braces: `{PaO2} ÷ {FiO2}` → `PaO2 ÷ FiO2`. */
-function shownFormula(template: string): string {
+export function shownFormula(template: string): string {
   if (template.indexOf('{') < 0) return template;
   const known = shownFormulas.get(template);
   if (known !== undefined) return known;

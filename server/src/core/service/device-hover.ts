@@ -7,7 +7,7 @@
  */
 import type { StatedValue } from '../analysis/model';
 import { DEVICE_SETTING_FIELDS, deviceSets } from '../analysis/noninvasive-support';
-import { ROOM_AIR_FIO2 } from '../derive/context';
+import { ROOM_AIR_FIO2, shownFormula } from '../derive/context';
 import { fio2Estimated, lowFlowFio2Rule } from '../derive/oxygen-transport';
 import { venturiSetting } from '../checks/collected';
 import { fieldById, type FieldDef } from '../fields/registry';
@@ -73,6 +73,7 @@ function fio2Text(device: string): string {
   }
   const rule = lowFlowFio2Rule(device);
   if (rule === null) return `FiO2: ${written}; none is estimated from the flow.`;
-  const formula = rule.formula.replace(/\{(\w+)\}/g, '$1');
+  // The formula as the derived value shows it (without the braces of its template).
+  const formula = shownFormula(rule.formula);
   return `FiO2: ${written}; with none, estimated from the flow as ${escapeMarkdown(fio2Estimated.short)} = ${escapeMarkdown(formula)}, an estimate not used for P/F or the A–a gradient. Source: ${escapeMarkdown(rule.source)}`;
 }
