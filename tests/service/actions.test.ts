@@ -12,6 +12,7 @@ import { fieldById } from '../../server/src/core/fields/registry';
 import { convert, HB_MMOL_PER_L, unitById } from '../../server/src/core/fields/units';
 import { displayUnit } from '../../server/src/core/analysis/read-value';
 import { applyEdits, codeActions, convertNoteUnits, editsOverlap, keepsValues, type ActionInfo, type GasUnit } from '../../server/src/core/service';
+import { keepingCommentColumns } from '../../server/src/core/service/text-edits';
 import { FIX_CHECKS_PER_LINE } from '../../server/src/core/service/actions';
 import type { TextEdit } from '../../server/src/core/types';
 import { PLACEHOLDERS } from '../../server/src/core/privacy/types';
@@ -478,7 +479,8 @@ function referenceFixAll(result: NoteResult, codes: ReadonlySet<string>): TextEd
     if (editsOverlap([...edits, ...fix.edits])) continue;
     edits.push(...fix.edits);
   }
-  return edits;
+  // Each changed line's trailing comment kept in its column, as every action keeps it.
+  return keepingCommentColumns((line) => result.analysis.tree.lines[line]?.text, edits);
 }
 
 describe('action properties', () => {
@@ -659,5 +661,51 @@ describe('a redaction in a comment', () => {
     const fix = codeActions(result, name!.range).find((a) => a.title === 'Replace `AA` with [name]');
     expect(fix?.edits.map((e) => e.newText)).toEqual(['[name]']);
     expect(comments(applyEdits(text, fix!.edits))).toEqual(['#Mr [name] $']);
+  });
+});
+
+describe('a trailing comment stays in its column', () => {
+  // Each kind of action that changes the length of a line's content, on a line with its comment set
+  // in a column: the comment stays there (the content padded to that column, then the comment).
+  const cases: [marked: string, title: string, content: string][] = [
+    // fixes of findings
+    ['abg       pco2 6|.1, po2 71         # gas', 'Mark as kPa', 'abg       pco2 6.1 kPa, po2 71'],
+    ['abg       pco2 6|.1, po2 71         # gas', 'Convert to 46 mmHg', 'abg       pco2 46, po2 71'],
+    ['oxygen    venturi 2|8               # mask', 'Write `fio2 28 %`', 'oxygen    venturi fio2 28 %'],
+    ['oxygen    venturi 2|8               # mask', 'Write `28 L/min`', 'oxygen    venturi 28 L/min'],
+    ['vitals    rr|r 18                   # rate', 'Change to `rr`', 'vitals    rr 18'],
+    // the value under the cursor
+    ['abg       po2 7|1                   # gas', 'Write po2 in kPa', 'abg       po2 9.5 kPa'],
+    ['abg       po2 7|1                   # gas', 'Write the unit it was read in', 'abg       po2 71 mmHg'],
+    ['oxygen    fio2 0.|4                 # o2', 'Write fio2 in %', 'oxygen    fio2 40 %'],
+    ['vent      mode VC, rate 0.|2 Hz     # r', 'Write rate in /min', 'vent      mode VC, rate 12 /min'],
+    ['abg       7.3|0/56/71/26            # g', 'Write the shorthand gas pressures in kPa', 'abg       7.30/7.5/9.5/26 kPa'],
+    ['abg       7.3|0/56/71/26            # g', 'Write the unit the shorthand pressures were read in', 'abg       7.30/56/71/26 mmHg'],
+  ];
+  for (const [marked, title, content] of cases) {
+    it(`${title}: ${marked.replace('|', '')}`, () => {
+      const written = marked.replace('|', '');
+      const column = written.indexOf('#');
+      const fixed = after(note('@ 08:00', marked), title).split('\n')[1]!;
+      expect(fixed).toBe(`${content.padEnd(column)}${written.slice(column)}`);
+    });
+  }
+
+  it('comes two spaces after content grown past it, and moves no comment set closer than two spaces', () => {
+    expect(after(note('@ 08:00', 'abg       pco2 6|.1  # gas'), 'Mark as kPa')).toBe(note('@ 08:00', 'abg       pco2 6.1 kPa  # gas'));
+    expect(after(note('@ 08:00', 'abg       po2 7|1    # gas'), 'Write po2 in kPa')).toBe(note('@ 08:00', 'abg       po2 9.5 kPa  # gas'));
+    expect(after(note('@ 08:00', 'abg       po2 7|1 # gas'), 'Write po2 in kPa')).toBe(note('@ 08:00', 'abg       po2 9.5 kPa # gas'));
+    // A shorter content keeps it in its column; a line without a comment gets no blanks.
+    expect(after(note('@ 08:00', 'abg       pco2 6|.1'), 'Convert to 46 mmHg')).toBe(note('@ 08:00', 'abg       pco2 46'));
+  });
+
+  it('fix-all keeps it in its column where several fixes of a line change its length', () => {
+    // The extra comma removed (one column less) and the FiO2's key written (five more).
+    const text = note('@ 08:00', 'oxygen    hfnc 40 L/min,, 60 %      # in column 36');
+    const fixAll = codeActions(checkNote(text), { start: { line: 0, character: 0 }, end: { line: 0, character: 0 } }).find((a) => a.kind === 'source.fixAll');
+    expect(fixAll).toBeDefined();
+    const fixed = applyEdits(text, fixAll!.edits).split('\n')[1]!;
+    expect(fixAll!.findingCodes).toEqual(['PN105']);
+    expect(fixed).toBe('oxygen    hfnc 40 L/min, fio2 60 %  # in column 36');
   });
 });

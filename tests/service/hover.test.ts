@@ -9,6 +9,8 @@ import { derivedBody } from '../../server/src/core/service/derived-hover';
 import { note, noteAt } from './cursor';
 import { SECTIONS } from '../../server/src/core/fields/sections';
 import { FIELDS } from '../../server/src/core/fields/registry';
+import { SOURCES } from '../../server/src/core/physiology';
+import { derivedDef } from '../../server/src/core/derive/registry';
 
 function hover(marked: string) {
   const { result, position } = noteAt(marked);
@@ -327,5 +329,60 @@ describe('inputs written in another unit than the formula takes', () => {
 
   it('says nothing more for an input written in the unit the formula takes', () => {
     expect(body('pf_ratio')).not.toMatch(/PaO2 70 mmHg \(written/);
+  });
+});
+
+describe('hover on an oxygen device', () => {
+  const carry = 'Carries forward: yes, until the next `oxygen` line';
+  const settings = (marked: string) => markdown(marked).split('\n\n').find((p) => p.includes('Settings it takes') || p.includes('It takes no settings'));
+  const fio2 = (marked: string) => markdown(marked).split('\n\n').find((p) => p.startsWith('FiO2: '));
+
+  it('says what each device takes and how Pneumark gets its FiO2, then how it carries, with the caution line', () => {
+    expect(settings('oxygen hf|nc 40, fio2 0.5')).toBe('Settings it takes: Oxygen flow (`flow`), FiO2 (`fio2`).');
+    expect(fio2('oxygen hf|nc 40, fio2 0.5')).toBe('FiO2: its setting, written as `fio2`; none is estimated from the flow.');
+    expect(settings('oxygen can|nula 2')).toBe('Settings it takes: Oxygen flow (`flow`).');
+    expect(settings('oxygen ven|turi 28')).toBe('Settings it takes: Oxygen flow (`flow`), FiO2 (`fio2`).');
+    expect(fio2('oxygen ven|turi 28')).toBe('FiO2: its setting, written as `fio2`; a bare 24 to 60 right after `venturi` is read as its setting in % (PN321).');
+    expect(settings('oxygen n|rb 15')).toBe('`nrb` is read as **reservoir**. Settings it takes: Oxygen flow (`flow`).');
+    expect(fio2('oxygen n|rb 15')).toBe('FiO2: not set by the device: a `fio2` written beside it is a value stated, used as written; none is estimated from the flow.');
+    expect(settings('oxygen n|iv ipap 12, epap 6')).toBe('Settings it takes: Oxygen flow (`flow`), FiO2 (`fio2`), IPAP (`ipap`), EPAP (`epap`).');
+    expect(settings('oxygen cp|ap level 8')).toBe('Settings it takes: Oxygen flow (`flow`), FiO2 (`fio2`), CPAP (`level`).');
+    expect(settings('oxygen room a|ir')).toBe('It takes no settings: no oxygen is added.');
+    expect(fio2('oxygen room a|ir')).toBe("FiO2: 0.21, the air's, where the line writes no oxygen flow and no FiO2 above it.");
+    for (const marked of ['oxygen hf|nc 40', 'oxygen can|nula 2', 'oxygen ven|turi 28', 'oxygen n|rb 15', 'oxygen n|iv ipap 12, epap 6', 'oxygen cp|ap level 8', 'oxygen room a|ir']) {
+      const md = markdown(marked);
+      expect(md, marked).toContain(carry);
+      endsWithCaution(md);
+    }
+  });
+
+  it('gives the low-flow estimate of a cannula and a simple mask with the rule and the source its value states', () => {
+    expect(fio2('oxygen can|nula 2')).toBe(`FiO2: not set by the device: a \`fio2\` written beside it is a value stated, used as written; with none, estimated from the flow as FiO2 est = 0.21 + 0.04 × flow, an estimate not used for P/F or the A–a gradient. Source: ${SOURCES['nasal-cannula-fio2']}`);
+    expect(fio2('oxygen ma|sk 6')).toContain(`estimated from the flow as FiO2 est = 0.35 + 0.04 × (flow − 5), an estimate not used for P/F or the A–a gradient. Source: ${SOURCES['simple-mask-fio2']}`);
+    // The same rule and source as the derived value of that line.
+    const { result } = noteAt('@ 08:00\noxygen cannula 2|');
+    const estimate = result.analysis.derivation(0)?.derived.find((d) => d.id === 'fio2_estimated');
+    expect(estimate?.formula).toBe('0.21 + 0.04 × flow');
+    expect(fio2('oxygen can|nula 2')).toContain(`FiO2 est = ${estimate?.formula}`);
+    expect(derivedDef('fio2_estimated')?.source).toContain(SOURCES['nasal-cannula-fio2']);
+  });
+
+  it('names a device written in words or with hyphens by its canonical name', () => {
+    expect(settings('oxygen nasal hi|gh flow 30')).toBe('`nasal high flow` is read as **hfnc**. Settings it takes: Oxygen flow (`flow`), FiO2 (`fio2`).');
+    expect(settings('oxygen non-rebr|eather-mask 15')).toBe('`non-rebreather-mask` is read as **reservoir**. Settings it takes: Oxygen flow (`flow`).');
+  });
+
+  it('says a misspelt device is none it knows, the device meant and those it knows', () => {
+    const keyed = markdown('oxygen device can|ula');
+    expect(keyed).toContain('`canula` is not a device Pneumark knows: it takes no settings and gives no FiO2.');
+    expect(keyed).toContain('Did you mean `cannula`? Devices Pneumark knows: `room air`, `cannula`, `mask`, `venturi`, `reservoir`, `hfnc`, `niv`, `cpap`.');
+    expect(keyed).not.toContain('Settings it takes');
+    endsWithCaution(keyed);
+    // Written first without a key, the word is read as a key, as PN201 says: neither a device nor a key.
+    const first = markdown('oxygen can|ula 2');
+    expect(first).toContain('`canula` is neither a device nor a key of `oxygen` lines.');
+    expect(first).toContain('Did you mean `cannula`?');
+    // A word that is not first on the line is no device.
+    expect(markdown('oxygen flow 2, fi|o 0.4')).toContain('`fio` is not a key of `oxygen` lines.');
   });
 });

@@ -2,6 +2,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { applyEdits, editsOverlap, OverlappingEditsError } from '../../server/src/core/service';
+import { keepingCommentColumns } from '../../server/src/core/service/text-edits';
 import type { TextEdit } from '../../server/src/core/types';
 
 const edit = (line: number, from: number, to: number, newText: string, toLine = line): TextEdit => ({ range: { start: { line, character: from }, end: { line: toLine, character: to } }, newText });
@@ -40,5 +41,23 @@ describe('applyEdits', () => {
       const edits = raw.map(([line, ch, t]) => edit(line, ch, ch, t));
       expect(typeof applyEdits(text, edits)).toBe('string');
     }), { numRuns: 300 });
+  });
+});
+
+describe('keepingCommentColumns', () => {
+  const lines = ['abg po2 71    # a', 'vitals hr 80  # b'];
+  const text = lines.join('\n');
+  const at = (line: number, start: number, end: number, newText: string) => ({ range: { start: { line, character: start }, end: { line, character: end } }, newText });
+
+  it('keeps each changed line\'s comment in its column, or two spaces after content grown past it', () => {
+    const edits = [at(0, 8, 10, '9.5 kPa'), at(1, 10, 12, '8')];
+    expect(applyEdits(text, keepingCommentColumns((l) => lines[l], edits))).toBe('abg po2 9.5 kPa  # a\nvitals hr 8   # b');
+  });
+
+  it('leaves alone a line an edit spans past its end, and gives the edits unchanged where no comment is', () => {
+    const joined = [{ range: { start: { line: 0, character: 8 }, end: { line: 1, character: 0 } }, newText: '' }];
+    expect(keepingCommentColumns((l) => lines[l], joined)).toEqual(joined);
+    const bare = [at(0, 4, 7, 'pao2')];
+    expect(keepingCommentColumns(() => 'abg po2 71', bare)).toEqual(bare);
   });
 });

@@ -59,7 +59,7 @@ export function flowOnRoomAir(values: ValuesInForce): number | null {
 }
 
 /** The FiO2 of air (common practice; 0.2093 in some texts). */
-const ROOM_AIR_FIO2 = 0.21;
+export const ROOM_AIR_FIO2 = 0.21;
 
 /**
  * Whether an FiO2 is one of an oxygen line whose device is room air, and above 0.21 (beyond
@@ -123,7 +123,7 @@ export function defineDerived(def: DerivedDef): DerivedDefinition {
 const shownFormulas = new Map<string, string>();
 
 /** A formula template without its braces: `{PaO2} ÷ {FiO2}` → `PaO2 ÷ FiO2`. */
-function shownFormula(template: string): string {
+export function shownFormula(template: string): string {
   if (template.indexOf('{') < 0) return template;
   const known = shownFormulas.get(template);
   if (known !== undefined) return known;

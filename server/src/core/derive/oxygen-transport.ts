@@ -1,5 +1,5 @@
 /** Derived values of oxygen transport, and the low-flow FiO2 estimate. */
-import { SOURCES, arterialO2Content, fio2EstimateLowFlow, meanArterialPressure, oxygenDelivery } from '../physiology';
+import { SOURCES, arterialO2Content, fio2EstimateLowFlow, meanArterialPressure, oxygenDelivery, type LowFlowDevice } from '../physiology';
 import type { Timepoint } from '../analysis/model';
 import { formatStated } from '../present';
 import { defineDerived, type DeriveContext, type Outcome, type Term, type ValueExtras, type WordInForce } from './context';
@@ -80,6 +80,27 @@ export const meanArterialPressureDef = defineDerived({
   },
 });
 
+/** A low-flow device's FiO2 rule: the device as the rule names it, the formula and its source. */
+export interface LowFlowFio2Rule {
+  readonly device: string;
+  readonly formula: string;
+  readonly source: string;
+}
+
+/**
+ * The rule of each low-flow device whose FiO2 is estimated from its flow, as the estimate states it:
+ * the one table the definition below, each value and the device's hover read.
+ */
+export const LOW_FLOW_FIO2_RULES: Readonly<Record<LowFlowDevice, LowFlowFio2Rule>> = {
+  cannula: { device: 'cannula', formula: '0.21 + 0.04 × {flow}', source: SOURCES['nasal-cannula-fio2'] },
+  mask: { device: 'simple mask', formula: '0.35 + 0.04 × ({flow} − 5)', source: SOURCES['simple-mask-fio2'] },
+};
+
+/** The low-flow rule of a canonical device word; null for a device whose FiO2 is not estimated. */
+export function lowFlowFio2Rule(device: string): LowFlowFio2Rule | null {
+  return device === 'cannula' || device === 'mask' ? LOW_FLOW_FIO2_RULES[device] : null;
+}
+
 export const fio2Estimated = defineDerived({
   id: 'fio2_estimated',
   label: 'FiO2 estimated from a low-flow device',
@@ -88,8 +109,8 @@ export const fio2Estimated = defineDerived({
   decimals: 2,
   category: 'oxygenation',
   // Each device's rule, as the table in grammar/README.md gives them; a value names its own.
-  formula: '0.21 + 0.04 × {flow} (cannula) | 0.35 + 0.04 × ({flow} − 5) (simple mask)',
-  source: `${SOURCES['nasal-cannula-fio2']} ${SOURCES['simple-mask-fio2']}`,
+  formula: `${LOW_FLOW_FIO2_RULES.cannula.formula} (${LOW_FLOW_FIO2_RULES.cannula.device}) | ${LOW_FLOW_FIO2_RULES.mask.formula} (${LOW_FLOW_FIO2_RULES.mask.device})`,
+  source: `${LOW_FLOW_FIO2_RULES.cannula.source} ${LOW_FLOW_FIO2_RULES.mask.source}`,
   anchors: ['device', 'o2_flow'],
   compute(c) {
     const device = c.word('device');
@@ -98,7 +119,7 @@ export const fio2Estimated = defineDerived({
     const flow = c.field('o2_flow', 'flow');
     if (!flow) return c.missing([flow, c.needFor('o2_flow', 'flow')]);
     const value = fio2EstimateLowFlow(device.word, flow.value);
-    const formula = device.word === 'cannula' ? '0.21 + 0.04 × {flow}' : '0.35 + 0.04 × ({flow} − 5)';
+    const formula = LOW_FLOW_FIO2_RULES[device.word].formula;
     // The device is an input as the flow is: the rule differs by device, so the estimate rests on it
     // (and where it is carried, hovers, `show` and PN326 see it so).
     return c.value(value, [wordTerm(device), flow], { estimate: true, formula, notes: ['a rough estimate: the true FiO2 depends on breathing pattern; not used for P/F or the A–a gradient'] });

@@ -9,6 +9,8 @@
  *     applies every safe fix in the note (edits never overlap);
  * (e) convert every gas pressure in the note to mmHg or kPa (`convertNoteUnits`), offered on a
  *     gas pressure or on the `units` line.
+ * Every action that changes the length of a line's content keeps its trailing comment in its
+ * column (`keepingCommentColumns`, the rule renames and the note's conversion keep too).
  */
 import type { NoteResult } from '../check-note';
 import type { StatedValue } from '../analysis/model';
@@ -19,7 +21,7 @@ import { allStated, isValidPosition, itemAt, lineAt, statedOf, timepointOfLine }
 import { OSCILLATION_MODE } from '../physiology/mechanics';
 import { parseLine } from '../syntax/parser';
 import type { LineNode } from '../syntax/tree';
-import { applyEdits, editsOverlap } from './text-edits';
+import { applyEdits, editsOverlap, keepingCommentColumns } from './text-edits';
 import { displayUnit } from '../analysis/read-value';
 import { ITEMS_PER_STEP, runSteps, type Steps } from '../util/steps';
 import { convertNoteUnits, convertNoteUnitSteps, itemConversionEdits, numberIn, otherUnits, shorthandConversionEdits, shorthandPressures, type GasUnit } from './unit-conversion';
@@ -83,7 +85,7 @@ export function codeActions(result: NoteResult, range: Range): ActionInfo[] {
         same.action.resolves.push(f);
         continue;
       }
-      const action = { title: fix.title, kind: 'quickfix' as const, edits: [...fix.edits], findingCodes: [f.code], resolves: [f], ...(fix.preferred ? { preferred: true } : {}) };
+      const action = { title: fix.title, kind: 'quickfix' as const, edits: keepingCommentColumns(lineTextOf(result), fix.edits), findingCodes: [f.code], resolves: [f], ...(fix.preferred ? { preferred: true } : {}) };
       quickFixes.push({ action, edits });
       actions.push(action);
     }
@@ -97,6 +99,16 @@ export function codeActions(result: NoteResult, range: Range): ActionInfo[] {
   return actions;
 }
 
+/** The text of a line of the analysed note (for `keepingCommentColumns`). */
+function lineTextOf(result: NoteResult): (line: number) => string | undefined {
+  return (line) => result.analysis.tree.lines[line]?.text;
+}
+
+/** The actions with each changed line's trailing comment kept in its column. */
+function keepingComments(result: NoteResult, actions: ActionInfo[]): ActionInfo[] {
+  return actions.map((a) => ({ ...a, edits: keepingCommentColumns(lineTextOf(result), a.edits) }));
+}
+
 function valueActions(result: NoteResult, range: Range): ActionInfo[] {
   const node = lineAt(result, range.start.line);
   if (!node || node.kind !== 'section' || range.start.character > node.text.length) return [];
@@ -108,11 +120,11 @@ function valueActions(result: NoteResult, range: Range): ActionInfo[] {
     const stated = statedOf(result, line, hit.item);
     if (stated) {
       if (hit.item.implied === 'shorthand') {
-        pushAll(out, shorthandActions(result, line));
+        pushAll(out, keepingComments(result, shorthandActions(result, line)));
       } else {
-        pushAll(out, conversionActions(stated));
-        pushAll(out, rateInPerMinuteAction(result, stated));
-        pushAll(out, addUnitAction(result, stated));
+        pushAll(out, keepingComments(result, conversionActions(stated)));
+        pushAll(out, keepingComments(result, rateInPerMinuteAction(result, stated)));
+        pushAll(out, keepingComments(result, addUnitAction(result, stated)));
       }
     }
   }
@@ -364,13 +376,16 @@ class TakenRanges {
   }
 }
 
-/** Edits of the safe fixes of these findings, skipping any that would overlap an earlier one. */
-function safeEdits(findings: readonly Finding[]): SafeEdits {
-  return runSteps(safeEditSteps(findings));
+/**
+ * Edits of the safe fixes of these findings, skipping any that would overlap an earlier one, with
+ * each changed line's trailing comment kept in its column.
+ */
+function safeEdits(result: NoteResult, findings: readonly Finding[]): SafeEdits {
+  return runSteps(safeEditSteps(result, findings));
 }
 
 /** `safeEdits` in steps, yielding after every ITEMS_PER_STEP findings (see util/steps.ts). */
-function* safeEditSteps(findings: readonly Finding[]): Steps<SafeEdits> {
+function* safeEditSteps(result: NoteResult, findings: readonly Finding[]): Steps<SafeEdits> {
   const edits: TextEdit[] = [];
   const taken = new TakenRanges();
   const codes = new Set<string>();
@@ -386,7 +401,7 @@ function* safeEditSteps(findings: readonly Finding[]): Steps<SafeEdits> {
     codes.add(f.code);
     fixed.push(f);
   }
-  return { edits, codes: [...codes], count: fixed.length, fixed };
+  return { edits: keepingCommentColumns(lineTextOf(result), edits), codes: [...codes], count: fixed.length, fixed };
 }
 
 /** The findings whose preferred fix is safe, and the fix-all edits, kept per analysis (a note that does not change gives the same result). */
@@ -421,7 +436,7 @@ function* fixAllSteps(result: NoteResult): Steps<FixAll> {
     known = { withSafeFix, byCode: new Map(), all: null };
     FIX_ALL.set(result, known);
   }
-  if (known.withSafeFix.length > 0 && known.all === null) known.all = yield* safeEditSteps(known.withSafeFix);
+  if (known.withSafeFix.length > 0 && known.all === null) known.all = yield* safeEditSteps(result, known.withSafeFix);
   return known;
 }
 
@@ -434,7 +449,7 @@ function fixAllActions(result: NoteResult, range: Range): ActionInfo[] {
   for (const code of codesHere) {
     let ofCode = known.byCode.get(code);
     if (!ofCode) {
-      ofCode = safeEdits(withSafeFix.filter((f) => f.code === code));
+      ofCode = safeEdits(result, withSafeFix.filter((f) => f.code === code));
       known.byCode.set(code, ofCode);
     }
     const { edits, count, fixed } = ofCode;
@@ -442,7 +457,7 @@ function fixAllActions(result: NoteResult, range: Range): ActionInfo[] {
     const title = checkByCodeOrAlias(code)?.title ?? code;
     out.push({ title: `Fix all in the note: ${title} (${code}, ${count} places)`, kind: 'quickfix', edits, findingCodes: [code], resolves: fixed });
   }
-  const all = (known.all ??= safeEdits(withSafeFix));
+  const all = (known.all ??= safeEdits(result, withSafeFix));
   if (all.count > 0) out.push({ title: `Apply every safe fix in the note (${all.count})`, kind: 'source.fixAll', edits: all.edits, findingCodes: all.codes, resolves: all.fixed });
   return out;
 }

@@ -24,6 +24,7 @@ import { formatNumber, formatShort, wordList } from '../util/format';
 import { unitsForSpelling } from '../fields/units';
 import { isBlank } from '../syntax/lexer';
 import { derivedValueText, otherSystemText } from './derived-hover';
+import { deviceParagraphs, unknownDeviceParagraphs } from './device-hover';
 import { allStated, contentEnd, contentStart, isValidPosition, itemAt, lineAt, lineRange, showsKpaOnLine, spanContains, statedOf, timepointOfLine, type ItemHit } from './locate';
 import { cautionLine, code, describedMarkdown, escapeMarkdown, paragraphs } from './markdown';
 import type { HoverInfo } from './types';
@@ -80,7 +81,11 @@ function fieldMarkdown(result: NoteResult, node: SectionLine, hit: ItemHit): str
   const field = fieldFor(node.section, hit.item.keyName);
   if (!field) {
     const keys = fieldsInSection(node.section).map((f) => code(f.aliases[0] ?? f.id));
-    return paragraphs([`${code(hit.item.key?.text ?? hit.item.keyName)} is not a key of ${code(node.section)} lines.`, keys.length > 0 ? `Keys: ${keys.join(', ')}` : null]);
+    const written = hit.item.key?.text ?? hit.item.keyName;
+    // The first word of an oxygen line may be a device misspelt (`oxygen canula 2`), as PN201 says.
+    const device = node.section === 'oxygen' && node.items[0] === hit.item ? fieldFor('oxygen', 'device') : undefined;
+    if (device) return paragraphs([`${code(written)} is neither a device nor a key of ${code(node.section)} lines.`, ...unknownDeviceParagraphs(device, written).slice(1), keys.length > 0 ? `Keys: ${keys.join(', ')}` : null]);
+    return paragraphs([`${code(written)} is not a key of ${code(node.section)} lines.`, keys.length > 0 ? `Keys: ${keys.join(', ')}` : null]);
   }
   const stated = statedOf(result, node.line, hit.item);
   const keyWords = hit.item.implied === 'shorthand'
@@ -92,7 +97,9 @@ function fieldMarkdown(result: NoteResult, node: SectionLine, hit: ItemHit): str
   const head = `**${escapeMarkdown(field.label)}** — ${keyWords} on this ${code(node.section)} line`;
   const parts: (string | null)[] = [head, describedMarkdown(field.description)];
   if (stated) {
-    parts.push(valueText(stated, showsKpaOnLine(result, stated.line)), modeFamilyText(stated), unitText(result, stated, field), originText(result, stated), usableText(stated, field), notGivenText(result, stated), feedsText(result, stated));
+    parts.push(valueText(stated, showsKpaOnLine(result, stated.line)), modeFamilyText(stated));
+    if (field.id === 'device') parts.push(...deviceParagraphs(field, stated, stated.item.value?.text ?? ''));
+    parts.push(unitText(result, stated, field), originText(result, stated), usableText(stated, field), notGivenText(result, stated), feedsText(result, stated));
   } else if (hit.item.value) {
     parts.push(`${code(hit.item.value.text)} could not be read as ${escapeMarkdown(field.label)}.`);
   }

@@ -4,6 +4,7 @@
  * Lines end at `\n`, `\r\n` or `\r` (as LSP counts them); a character past the end of its line
  * means the end of the line, a line past the end of the text means the end of the text.
  */
+import { keepCommentColumn, type LineEdit } from '../syntax/layout';
 import { comparePositions, type Position, type TextEdit } from '../types';
 
 /** Offsets (UTF-16) where each line starts and where its content ends (before its terminator). */
@@ -85,4 +86,38 @@ export function editsOverlap(edits: readonly TextEdit[]): boolean {
     if (comparePositions(cur.range.start, prev.range.end) < 0) return true;
   }
   return false;
+}
+
+/**
+ * `edits` with those that keep each changed line's trailing comment in its column
+ * (`keepCommentColumn`, the one rule: where it was, or two spaces after content grown past it):
+ * every action that changes the length of a line's content asks for it, so a note laid out with
+ * its comments in one column stays so. `lineText` gives the text of a line of the note. A line that
+ * an edit spans past its end (one joining lines) is left as it is; an insertion of whole lines (an
+ * edit whose text ends lines, at a line's start) changes no column of the line it is put before.
+ * The edits added come after those given (an insertion at the content's end stays before them).
+ */
+export function keepingCommentColumns(lineText: (line: number) => string | undefined, edits: readonly TextEdit[]): TextEdit[] {
+  const byLine = new Map<number, LineEdit[]>();
+  const spanned = new Set<number>();
+  for (const e of edits) {
+    const line = e.range.start.line;
+    if (e.range.end.line !== line) {
+      for (let l = line; l <= e.range.end.line; l++) spanned.add(l);
+      continue;
+    }
+    if (/[\r\n]/.test(e.newText)) continue;
+    const list = byLine.get(line);
+    const edit = { span: { start: e.range.start.character, end: e.range.end.character }, newText: e.newText };
+    if (list) list.push(edit);
+    else byLine.set(line, [edit]);
+  }
+  if (byLine.size === 0) return [...edits];
+  const out = [...edits];
+  for (const [line, list] of byLine) {
+    const text = spanned.has(line) ? undefined : lineText(line);
+    const blanks = text === undefined ? null : keepCommentColumn(text, list);
+    if (blanks) out.push({ range: { start: { line, character: blanks.span.start }, end: { line, character: blanks.span.end } }, newText: blanks.newText });
+  }
+  return out;
 }

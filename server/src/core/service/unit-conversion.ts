@@ -20,9 +20,8 @@ import { formatNumber, formatShort } from '../util/format';
 import { ITEM_COLUMN } from './format';
 import { within, withinAsWritten } from '../analysis/bounds';
 import { lineRange, statedOnLine } from './locate';
-import { applyEdits } from './text-edits';
+import { applyEdits, keepingCommentColumns } from './text-edits';
 import { ITEMS_PER_STEP, runSteps, type Steps } from '../util/steps';
-import { keepCommentColumn, type LineEdit } from '../syntax/layout';
 
 export type GasUnit = 'mmHg' | 'kPa';
 
@@ -273,30 +272,9 @@ export function* convertNoteUnitSteps(result: NoteResult, to: GasUnit): Steps<Te
   if (!known) CONVERSIONS.set(result, (known = {}));
   const kept = known[to];
   if (kept) return kept;
-  const edits = keepingCommentColumns(result, yield* keepingOutcomes(result, to));
+  const edits = keepingCommentColumns((line) => result.analysis.tree.lines[line]?.text, yield* keepingOutcomes(result, to));
   known[to] = edits;
   return edits;
-}
-
-/**
- * The edits of a conversion, with those that keep each changed line's trailing comment in its
- * column (`keepCommentColumn`): a note laid out with its comments in one column stays so.
- */
-function keepingCommentColumns(result: NoteResult, edits: TextEdit[]): TextEdit[] {
-  const byLine = new Map<number, LineEdit[]>();
-  for (const e of edits) {
-    if (e.range.start.line !== e.range.end.line || /[\r\n]/.test(e.newText)) continue;
-    const list = byLine.get(e.range.start.line) ?? [];
-    list.push({ span: { start: e.range.start.character, end: e.range.end.character }, newText: e.newText });
-    byLine.set(e.range.start.line, list);
-  }
-  const out = [...edits];
-  for (const [line, list] of byLine) {
-    const node = result.analysis.tree.lines[line];
-    const blanks = node ? keepCommentColumn(node.text, list) : null;
-    if (blanks) out.push({ range: lineRange(line, blanks.span.start, blanks.span.end), newText: blanks.newText });
-  }
-  return out;
 }
 
 /**

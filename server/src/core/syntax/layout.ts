@@ -26,7 +26,8 @@ export interface LineEdit {
  *   or one space after a longer word): the new word padded so that the items start where the
  *   formatter would start them after it;
  * - a trailing comment set at least two spaces after the content: kept in its column while the
- *   content still ends at least two columns before it, else two spaces after the content.
+ *   content still ends at least two columns before it, else two spaces after the content
+ *   (`keepCommentColumn`, the one rule of it).
  * Nothing else: blanks other than plain spaces, and a line not so laid out, are left as they are.
  */
 export function renameKeepingColumns(text: string, span: Span, newText: string): readonly LineEdit[] {
@@ -38,28 +39,17 @@ export function renameKeepingColumns(text: string, span: Span, newText: string):
     const end = span.start + newText.length;
     rename = { span: { start: span.start, end: next }, newText: newText + ' '.repeat(Math.max(1, ITEM_COLUMN - end)) };
   }
-  const comment = text.indexOf('#');
-  if (comment < rename.span.end) return [rename];
-  let contentEnd = comment;
-  while (contentEnd > rename.span.end && text.charCodeAt(contentEnd - 1) === SPACE) contentEnd--;
-  const gap = comment - contentEnd;
-  // A gap that is not all plain spaces (a tab before them) stops short of the content: left as it is.
-  if (gap < COMMENT_GAP || (contentEnd > rename.span.end && /\s/.test(text.charAt(contentEnd - 1)))) return [rename];
-  const change = rename.newText.length - (rename.span.end - rename.span.start);
-  const wanted = Math.max(COMMENT_GAP, gap - change);
-  if (wanted === gap) return [rename];
-  // Only the spaces that change: some inserted after the content, or some of those after it removed.
-  const blanks: LineEdit = wanted > gap
-    ? { span: { start: contentEnd, end: contentEnd }, newText: ' '.repeat(wanted - gap) }
-    : { span: { start: contentEnd, end: contentEnd + gap - wanted }, newText: '' };
-  return [rename, blanks];
+  const blanks = keepCommentColumn(text, [rename]);
+  return blanks ? [rename, blanks] : [rename];
 }
 
 /**
  * The edit of blanks that keeps the trailing comment of the line `text` in its column once `edits`
  * (replacements within that line, none of them from the comment on) are made: a comment set at
  * least two spaces after the content stays where it was while the content still ends at least two
- * columns before it, else comes two spaces after the content, as `renameKeepingColumns` keeps it.
+ * columns before it, else comes two spaces after the content. The one rule of it: renames
+ * (`renameKeepingColumns`) and every code action that changes a line's length
+ * (`keepingCommentColumns` in service/text-edits.ts) ask it.
  * Null where nothing is to change: no such comment, or the edits leave it in its column.
  */
 export function keepCommentColumn(text: string, edits: readonly LineEdit[]): LineEdit | null {
