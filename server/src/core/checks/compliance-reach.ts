@@ -19,8 +19,14 @@ function endExpiratoryName(d: DerivedValue): string {
   return d.inputs.find((t) => t.name !== 'Pplat' && t.name !== 'VT')?.name ?? 'PEEP';
 }
 
+/** A formula with its numbers, without its result: `450 ÷ (12 − 10)` of `450 ÷ (12 − 10) = 225 mL/cmH2O`. */
+function withoutResult(substituted: string): string {
+  const end = substituted.lastIndexOf(' = ');
+  return end < 0 ? substituted : substituted.slice(0, end);
+}
+
 const aboveCeilingMessage = (c: DerivedValue): string =>
-  `Static compliance ${formatAgainst(c.value, 0, CEILING)} mL/cmH2O (${c.substituted.replace(/ = .*$/, '')}) is above ${CEILING} mL/cmH2O, more than the lungs and chest wall of a healthy adult give together: consistent with a transcription error in the plateau, the ${endExpiratoryName(c)} or the tidal volume.`;
+  `Static compliance ${formatAgainst(c.value, 0, CEILING)} mL/cmH2O (${withoutResult(c.substituted)}) is above ${CEILING} mL/cmH2O, more than the lungs and chest wall of a healthy adult give together: consistent with a transcription error in the plateau, the ${endExpiratoryName(c)} or the tidal volume.`;
 
 const noRiseMessage = (vt: number, dp: DerivedValue): string =>
   `Plateau pressure ${formatNumber(dp.inputs[0]?.value ?? NaN, 0)} cmH2O equals the ${endExpiratoryName(dp)} with a tidal volume of ${formatNumber(vt, 0)} mL: a breath delivered with no rise in pressure, which no respiratory system allows; consistent with a transcription error in the plateau or the ${endExpiratoryName(dp)}.`;
