@@ -376,6 +376,10 @@ const SPEC_LINES: Readonly<Record<string, readonly string[] | { readonly on: str
   'bp 120/80/60': ['PN102'],
   'hr 80/90': ['PN102'],
   'height 5 ft 10 in': ['PN105'],
+  // A bare height or weight: an adult's size where no age says otherwise, a child's under 18 years.
+  'height 70': ['PN204'],
+  'patient age 8 mo, height 70, weight 8': [],
+  'height 0.72': { on: 'patient age 8 mo\n@ 08:00\npatient height 0.72', codes: ['PN204'] },
   'altitude 1,650 m': ['PN103'],
   'vt 1,000': ['PN103'],
   'ph 7,352': ['PN103'],

@@ -2,8 +2,8 @@
 // on an earlier one: timepoints moved (a block cut and pasted elsewhere, so times and their order
 // change), carried settings changed or removed (FiO2, PEEP, the device), a place line added to or
 // removed from an early timepoint (the barometric pressure of every later one), `units gas`
-// toggled (how later bare numbers read), a line typed a character at a time, and changes of the
-// settings in between. After every update the session must give what a fresh analysis of the same
+// toggled (how later bare numbers read), a line typed a character at a time (a child's age typed
+// after a bare height: how the height reads), and changes of the settings in between. After every update the session must give what a fresh analysis of the same
 // text with the same settings gives: everything a user sees (tests/core/session-snapshot.ts).
 // A failure prints the shrunk edit list; replay with the seed fast-check prints.
 import fc from 'fast-check';
@@ -56,7 +56,9 @@ const PLACE_LINES = ['place     altitude 3000 m', 'place     barometric 600 mmHg
 const TIMEPOINT_LINES = ['@ 01:00', '@ day 2 06:00  moved', '@ +30min', '@ day 1 21:00', '@'];
 // A blood pressure with its mean in brackets typed a character at a time goes through an unclosed
 // bracket (`(9`, `(93 mm`) before it closes.
-const TYPED = ['abg 7.29/6.8/8.1/24', 'vent fio2 0.5, peep 8', 'place altitude 2500 m', '@ day 2 12:00', 'units gas kPa', 'vitals bp 120/80(93 mmHg) hr 80'];
+// A child's age and bare body sizes, typed anywhere: the age (`8` years, `8 m`, not an age unit,
+// then `8 mo`) decides how a bare height or weight of its header or timepoint reads, on any line of it.
+const TYPED = ['abg 7.29/6.8/8.1/24', 'vent fio2 0.5, peep 8', 'place altitude 2500 m', '@ day 2 12:00', 'units gas kPa', 'vitals bp 120/80(93 mmHg) hr 80', 'patient age 8 mo', 'patient height 70, weight 8'];
 
 type Edit =
   | { kind: 'move'; from: number; to: number }
@@ -155,6 +157,54 @@ function apply(lines: string[], e: Exclude<Edit, { kind: 'settings' }>): string[
   }
   return [lines.join('\n')];
 }
+
+describe('NoteSession: a child\'s age typed after a bare height', () => {
+  // Invented: an infant's header whose bare height is doubted until the age is typed below it, and
+  // a timepoint that restates the height before its age line. Each keystroke is analysed.
+  const NOTE = [
+    'patient   height 70, weight 8',
+    'place     altitude 300 m',
+    '',
+    '@ day 1 08:00  ward',
+    'patient   height 71',
+    'vitals    hr 130, spo2 94 %',
+    '',
+    '@ day 2 08:00',
+    'vitals    hr 124',
+  ];
+
+  /** Types `text` as a new line at `at` of `lines`, a character at a time: the texts after each keystroke. */
+  function typed(lines: readonly string[], at: number, text: string): string[] {
+    const out: string[] = [];
+    for (let c = 1; c <= text.length; c++) out.push([...lines.slice(0, at), text.slice(0, c), ...lines.slice(at)].join('\n'));
+    return out;
+  }
+
+  const doubted = (r: ReturnType<typeof checkNote>) => r.findings.filter((f) => f.code === 'PN204').map((f) => f.range.start.line);
+
+  for (const [where, at, lines] of [['on a later header line', 2, NOTE], ['at the timepoint, after its height', 5, NOTE]] as const) {
+    it(`${where}: the session gives what a fresh analysis gives at every keystroke`, () => {
+      const session = new NoteSession({});
+      const texts = [NOTE.join('\n'), ...typed(lines, at, 'patient   age 8 mo')];
+      // And the age deleted again, a character at a time.
+      texts.push(...[...typed(lines, at, 'patient   age 8 mo')].reverse().slice(1), NOTE.join('\n'));
+      const seen = new Set<string>();
+      for (const text of texts) {
+        const got = session.update(text);
+        const fresh = checkNote(text);
+        if (!sameAsJson(snapshot(got), snapshot(fresh))) expect(snapshot(got)).toEqual(snapshot(fresh));
+        seen.add(JSON.stringify(doubted(fresh)));
+      }
+      // Not vacuous: the keystrokes change which heights are doubted (none once `age 8` is typed, as
+      // 8 years, then both again at `8 m`, a unit an age does not take, then none).
+      expect(doubted(checkNote(NOTE.join('\n')))).toEqual([0, 4]);
+      const withAge = typed(lines, at, 'patient   age 8 mo').at(-1)!;
+      // The header's age is carried to the timepoint; one at the timepoint leaves the header an adult's.
+      expect(doubted(checkNote(withAge))).toEqual(at === 2 ? [] : [0]);
+      expect(seen.size).toBeGreaterThan(1);
+    });
+  }
+});
 
 describe('NoteSession (fast-check): edits that change what later timepoints depend on', () => {
   it(`gives what a fresh analysis gives after every update (${RUNS} edit sequences)`, { timeout: 300_000 }, () => {

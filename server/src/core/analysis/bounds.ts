@@ -3,8 +3,9 @@
  * barometric pressure is low, because extreme altitude makes such values real
  * (see the `boundsSource` of pao2 and paco2 in the field registry).
  */
-import type { Bounds, FieldDef } from '../fields/registry';
+import { fieldById, type Bounds, type FieldDef } from '../fields/registry';
 import { convert, unitById, type UnitDef } from '../fields/units';
+import { ADULT_FROM_YEARS } from '../physiology/adults';
 import { halfLastDigit } from '../util/format';
 
 export const LOW_PRESSURE_WAIVER_MMHG = 500;
@@ -40,16 +41,60 @@ export function softBoundsAt(field: FieldDef, barometricMmhg: number | null, bod
 }
 
 /**
- * Where a bare number is read in the unit in force without doubt (see `FieldDef.doubt`): the
- * field's doubt window, else its soft bounds, with the same waiver at low barometric pressure.
+ * Whether a field is a body size whose usual minimum is an adult's (height 120 cm, weight 25 kg):
+ * not applied under ADULT_FROM_YEARS, neither as the usual minimum (PN302) nor as the bottom of the
+ * doubt window of a bare number (PN204, `doubtBoundsAt`).
  */
-export function doubtBoundsAt(field: FieldDef, barometricMmhg: number | null): Bounds | undefined {
+export function isBodySize(field: FieldDef): boolean {
+  return field.id === 'height' || field.id === 'weight';
+}
+
+/** Whether an age (years; null: none in force) is a child's: under ADULT_FROM_YEARS. */
+export function isChildAge(ageYears: number | null): boolean {
+  return ageYears !== null && ageYears < ADULT_FROM_YEARS;
+}
+
+/**
+ * A child's size, for a body size under ADULT_FROM_YEARS: from the field's hard minimum (20 cm,
+ * 0.3 kg) to its usual maximum (220 cm, 250 kg). A child's size runs from a preterm newborn's to an
+ * adult's (common practice, no source), so no bound between tells a child's height in inches from
+ * one in cm: a bare `height 70` is an infant's 70 cm, not doubted as 70 in. It is both the doubt
+ * window of a bare number and where it would be ordinary in another unit: a number impossible in
+ * cm that is a child's size in another unit (`height 0.72`, meant as m) is doubted still.
+ */
+function childSizeBounds(id: string): Bounds {
+  const field = fieldById(id);
+  if (!field?.hard || field.hard.min === undefined || field.soft?.max === undefined) throw new Error(`bounds: ${id} needs a hard minimum and a usual maximum`);
+  return Object.freeze({ min: field.hard.min, max: (field.doubt ?? field.soft).max });
+}
+
+const CHILD_HEIGHT = childSizeBounds('height');
+const CHILD_WEIGHT = childSizeBounds('weight');
+
+/**
+ * Where a bare number is read in the unit in force without doubt (see `FieldDef.doubt`): the
+ * field's doubt window, else its soft bounds, with the same waiver at low barometric pressure; for
+ * a body size of a patient under ADULT_FROM_YEARS (`ageYears`, the age in force where the number
+ * is read; null: none), a child's window (`childSizeBounds`).
+ */
+export function doubtBoundsAt(field: FieldDef, barometricMmhg: number | null, ageYears: number | null = null): Bounds | undefined {
+  if (isChildAge(ageYears) && isBodySize(field)) return field.id === 'height' ? CHILD_HEIGHT : CHILD_WEIGHT;
   const doubt = field.doubt;
   if (!doubt) return softBoundsAt(field, barometricMmhg);
   if (barometricMmhg !== null && barometricMmhg < LOW_PRESSURE_WAIVER_MMHG && WAIVED_AT_ALTITUDE.has(field.id)) {
     return doubt.max === undefined ? {} : { max: doubt.max };
   }
   return doubt;
+}
+
+/**
+ * Where a bare number doubted in the unit in force would be ordinary in another unit (PN204): the
+ * field's soft bounds at the barometric pressure in force, or for a body size of a patient under
+ * ADULT_FROM_YEARS a child's size (`childSizeBounds`).
+ */
+export function ordinaryBoundsAt(field: FieldDef, barometricMmhg: number | null, ageYears: number | null): Bounds | undefined {
+  if (isChildAge(ageYears) && isBodySize(field)) return field.id === 'height' ? CHILD_HEIGHT : CHILD_WEIGHT;
+  return softBoundsAt(field, barometricMmhg);
 }
 
 export function within(value: number, bounds: Bounds | undefined): boolean {

@@ -14,7 +14,7 @@ import { closest, editDistance } from '../util/suggest';
 import { nearDevicePhrase } from '../fields/device-phrases';
 import { squeezeBlanks } from '../syntax/blanks';
 import { renameKeepingColumns } from '../syntax/layout';
-import { doubtBoundsAt, softBoundsAt, unitsWithin, within, type BoundsContext } from './bounds';
+import { doubtBoundsAt, ordinaryBoundsAt, unitsWithin, within, type BoundsContext } from './bounds';
 import type { StatedValue } from './model';
 import { givesNoSetPressure, givesPressure, supportOfDevice, SUPPORT_PRESSURE_FIELDS } from './noninvasive-support';
 import type { ReadIssue } from './read-issues';
@@ -22,6 +22,12 @@ import { isSupportItem, isSupportKeyOnVentLine, supportLineMove } from './suppor
 
 export interface ReadContext extends BoundsContext {
   readonly gasUnit: 'mmHg' | 'kPa';
+  /**
+   * The patient's age (years) in force where the line is read, null when none: a bare height or
+   * weight under 18 years is read against a child's size (`doubtBoundsAt`). The timeline takes it
+   * from the whole header, or the whole timepoint, before reading their lines (`ageForReading`).
+   */
+  readonly ageYears: number | null;
 }
 
 /** Section ids and unit ids by index, and back: a stated value keeps its section and units as indexes in one number. */
@@ -297,10 +303,10 @@ function bareUnit(field: FieldDef, written: number, ctx: ReadContext, canonical:
 /** A unit (other than the one assumed) in which a bare number would be ordinary. */
 function otherUnitLikely(field: FieldDef, canonicalValue: number, written: number, readUnit: UnitDef, canonical: UnitDef, ctx: ReadContext): UnitDef | null {
   if (field.bare === 'fraction-or-percent') return null;
-  const plausible = doubtBoundsAt(field, ctx.barometricMmhg) ?? field.hard;
+  const plausible = doubtBoundsAt(field, ctx.barometricMmhg, ctx.ageYears) ?? field.hard;
   if (!plausible || within(canonicalValue, plausible)) return null;
-  // Ordinary in the other unit: within the soft bounds there (not just plausible).
-  return unitsWithin(field, written, readUnit.id, softBoundsAt(field, ctx.barometricMmhg) ?? plausible)[0] ?? null;
+  // Ordinary in the other unit: within the soft bounds there (not just plausible); a child's size for a child's height or weight.
+  return unitsWithin(field, written, readUnit.id, ordinaryBoundsAt(field, ctx.barometricMmhg, ctx.ageYears) ?? plausible)[0] ?? null;
 }
 
 /**

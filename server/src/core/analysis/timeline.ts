@@ -522,6 +522,9 @@ function processBlock(lines: readonly LineNode[], start: number, end: number, in
     tpTime = time;
   }
   let context = reading.context;
+  // The age bare body sizes are read with, from the whole block, before any of its lines is read:
+  // an age stated after the height, on its line or on a later one, reads as one stated before it.
+  const ageYears = ageForReading(lines, start, end, stateIn);
   for (let i = start; i < end; i++) {
     const node = lines[i]!;
     if (node.kind !== 'section') continue;
@@ -535,7 +538,7 @@ function processBlock(lines: readonly LineNode[], start: number, end: number, in
       tpStart = firstContentLine(tree);
       tpTime = new TimeAt(null, null);
     }
-    if (context === null || context.place !== mutable.place || context.gasUnit !== mutable.gasUnit) context = reading.context = readContext(mutable, settings);
+    if (context === null || context.place !== mutable.place || context.gasUnit !== mutable.gasUnit || context.read.ageYears !== ageYears) context = reading.context = readContext(mutable, settings, ageYears);
     const into = inHeader ? (header ??= []) : stated;
     const from = inHeader ? into.length : count;
     const to = readLine(node, context.read, issues, into, from);
@@ -596,16 +599,46 @@ function timeOf(node: TimepointLine, last: TimepointTime, isFirst: boolean): Tim
   return new TimeAt(compact(day), compact((day - 1) * 1440 + t.minutes));
 }
 
-/** How bare numbers are read, and the held values it was worked out from. */
+/** How bare numbers are read, and the held values (and the age) it was worked out from. */
 interface ReadContextIn {
   readonly place: HeldMap;
   readonly gasUnit: Held | null;
   readonly read: ReadContext;
 }
 
-function readContext(state: CarryState, settings: Settings): ReadContextIn {
-  return { place: state.place, gasUnit: state.gasUnit, read: { gasUnit: gasUnitInForce(state, settings), barometricMmhg: barometricInForce(state.place, settings) } };
+function readContext(state: CarryState, settings: Settings, ageYears: number | null): ReadContextIn {
+  return { place: state.place, gasUnit: state.gasUnit, read: { gasUnit: gasUnitInForce(state, settings), barometricMmhg: barometricInForce(state.place, settings), ageYears } };
 }
+
+/**
+ * The age (years) the lines of the block `lines[start, end)` are read with: the age in force where
+ * they are stated, as the checks see it (PN302). In the header (block 0) the header's, in a
+ * timepoint's block the timepoint's: the last age its patient lines state (every line of a header
+ * or a timepoint describes one moment, so whichever line states the age, before or after a height,
+ * gives the same reading), else the one carried to it. An age stated but not used (impossible, or
+ * its unit in doubt) replaces the one before it all the same, and is no age. Null: none.
+ */
+function ageForReading(lines: readonly LineNode[], start: number, end: number, stateIn: CarryState): number | null {
+  for (let i = end - 1; i >= start; i--) {
+    const node = lines[i]!;
+    if (node.kind !== 'section' || node.section !== 'patient') continue;
+    const items = node.items;
+    for (let k = items.length - 1; k >= 0; k--) {
+      const item = items[k]!;
+      if (item.field?.id !== 'age') continue;
+      // Read as the line will be (an age's reading depends on no context); its issues are reported then.
+      const age = readItem(item, node.section, node.line, AGE_CONTEXT, AGE_ISSUES, items, node.text);
+      AGE_ISSUES.length = 0;
+      if (age !== null) return age.usable ? age.value : null;
+    }
+  }
+  const held = stateIn.patient.get('age')?.stated;
+  return held !== undefined && held.usable ? held.value : null;
+}
+
+/** What `ageForReading` reads an age with (nothing of it changes how an age is read), and its scratch list of issues. */
+const AGE_CONTEXT: ReadContext = Object.freeze({ gasUnit: 'mmHg', barometricMmhg: null, ageYears: null });
+const AGE_ISSUES: ReadIssue[] = [];
 
 /** The gas unit in force at the end of the header: its last `units gas`, else the setting. */
 function headerGasUnit(header: readonly StatedValue[], settings: Settings): 'mmHg' | 'kPa' {

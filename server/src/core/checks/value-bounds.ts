@@ -3,7 +3,7 @@
  * bounds (field registry). Saturations above 100 % and FiO2 outside 0.21–1.0 have checks
  * of their own and are left to them.
  */
-import { softBoundsAt, unitsWithin, within, withinAsWritten } from '../analysis/bounds';
+import { isBodySize, isChildAge, softBoundsAt, unitsWithin, within, withinAsWritten } from '../analysis/bounds';
 import type { StatedValue } from '../analysis/model';
 import { PER_KG_PBW } from '../analysis/per-kg-volume';
 import type { Bounds, FieldDef } from '../fields/registry';
@@ -15,7 +15,6 @@ import { formatAgainst, formatNumber } from '../util/format';
 import { derivedValueOf } from '../derive/registry';
 import { defineCheck, type CheckContext, type CheckDef, type TimepointContext } from './check';
 import { inHfov } from './oscillation';
-import { ADULT_FROM_YEARS } from '../physiology/adults';
 import type { Fix } from '../types';
 
 const OWN_CHECKS = new Set(['fio2']);
@@ -56,25 +55,19 @@ function usualBounds(field: FieldDef, barometricMmhg: number | null, at: Timepoi
 }
 
 /**
- * Height and weight: their usual minimum is an adult's (120 cm, 25 kg), not applied to a patient
- * under ADULT_FROM_YEARS, who is smaller (common practice, no source); the usual maximum still holds.
+ * Whether the age in force (the header's at note scope) is under ADULT_FROM_YEARS: then the usual
+ * minimum of height and weight, an adult's (120 cm, 25 kg), is not applied (`isBodySize`; common
+ * practice, no source); the usual maximum still is. The header's age is its last (a later one
+ * replaces an earlier, used or not, as at a timepoint), as the header's lines were read with it.
  */
-function isChildSize(field: FieldDef): boolean {
-  return field.id === 'height' || field.id === 'weight';
-}
-
-/** Whether the age in force (the header's at note scope) is under ADULT_FROM_YEARS. */
 function isChildAt(ctx: CheckContext, at: TimepointContext | null): boolean {
-  let age: number | null = null;
-  if (at !== null) age = at.timepoint.values.numberOf('age');
-  else {
-    const header = ctx.analysis.timeline.header;
-    for (let i = 0; i < header.length; i++) {
-      const s = header[i]!;
-      if (s.field.id === 'age' && s.usable && s.value !== null) age = s.value;
-    }
+  if (at !== null) return isChildAge(at.timepoint.values.numberOf('age'));
+  const header = ctx.analysis.timeline.header;
+  for (let i = header.length - 1; i >= 0; i--) {
+    const s = header[i]!;
+    if (s.field.id === 'age') return isChildAge(s.usable ? s.value : null);
   }
-  return age !== null && age < ADULT_FROM_YEARS;
+  return false;
 }
 
 function withoutMinimum(bounds: Bounds | undefined): Bounds | undefined {
@@ -298,7 +291,7 @@ export const unusualValue = defineCheck({
     // A tidal volume per kg of PBW has bounds of its own (PN325).
     if (OWN_CHECKS.has(field.id) || !stated.usable || stated.readUnit === null || stated.readUnit === PER_KG_PBW || stated.unitDoubt) return;
     if (field.hard && outOfBounds(stated, field.hard)) return;
-    const soft = isChildSize(field) && isChildAt(ctx, at) ? withoutMinimum(usualBounds(field, barometricMmhg, at)) : usualBounds(field, barometricMmhg, at);
+    const soft = isBodySize(field) && isChildAt(ctx, at) ? withoutMinimum(usualBounds(field, barometricMmhg, at)) : usualBounds(field, barometricMmhg, at);
     // A number written in another unit is compared at the precision written: 20.0 kPa is PaCO2's usual 150 mmHg.
     if (!outOfBounds(stated, soft) || (stated.value !== null && withinAsWritten(stated.value, soft, field, stated.readUnit, stated.item.number === null ? null : stated.item.value?.text ?? null))) return;
     // A unit written in which the number is usual (`vt 0.45 mL`, meant as L) is offered, not preferred:
