@@ -163,8 +163,11 @@ describe('text that starts like a spreadsheet formula', () => {
     expect((parse(text, { columns: true, bom: true }) as Record<string, string>[])[0]?.label).toBe('arrivée');
   });
 
-  it('guards tab and carriage return at the start too, and nothing else', () => {
-    expect(['=1', '+1', '-1', '@a', '\tx', '\rx', "'x"].map(spreadsheetText)).toEqual(["'=1", "'+1", "'-1", "'@a", "'\tx", "'\rx", "''x"]);
+  it('guards tab, carriage return and line feed at the start too, and nothing else', () => {
+    // OWASP, "CSV Injection" (OWASP/www-community, pages/attacks/CSV_Injection.md at 0e5e8f00, August 2025): no cell
+    // may begin with =, +, -, @, tab (0x09), carriage return (0x0D) or line feed (0x0A).
+    expect(['=1', '+1', '-1', '@a', '\tx', '\rx', '\nx', "'x"].map(spreadsheetText)).toEqual(["'=1", "'+1", "'-1", "'@a", "'\tx", "'\rx", "'\nx", "''x"]);
+    expect(csvField('\n=1+2', safe)).toBe('"\'\n=1+2"');
     expect(['a=1', ' =1', '1', '', 'ü'].map(spreadsheetText)).toEqual(['a=1', ' =1', '1', '', 'ü']);
     expect(csvField(-4, safe)).toBe('-4');
     expect(csvField('=a,b', safe)).toBe('"\'=a,b"');

@@ -125,9 +125,9 @@ Options:
                              N a whole number from -100000 to 100000, e.g. --shift-days -3
   --anchor DATETIME          FHIR only: the ISO date-time of day 1 00:00 (its time must be 00:00, e.g.
                              2026-01-05T00:00:00Z), to give observations a time
-  --spreadsheet-safe         CSV only: an apostrophe before text starting with = + - @ tab, a carriage
-                             return or ' (undo by removing one), and a byte-order mark; for files
-                             opened in spreadsheet programs (the default output stays exact)
+  --spreadsheet-safe         CSV only: an apostrophe before text starting with = + - @ tab, carriage
+                             return, line feed or ' (undo by removing one), and a byte-order mark;
+                             for files opened in spreadsheet programs (the default output stays exact)
   --exclude PATTERN          leave out paths matching PATTERN (gitignore syntax), or a
                              path (absolute, or from ./ or ../); repeatable
   --jobs N                   worker threads (0 or 1: none); default one per core, up to 4, from 2000 notes

@@ -16,7 +16,7 @@
  *   spreadsheet programs may run such a cell (a timepoint label such as `=HYPERLINK(…)`, a file
  *   name) as a formula when the file is opened in them, while a pipeline needs the exact text.
  *   With `spreadsheetSafe` (`pneumark export --format csv --spreadsheet-safe`), every text cell
- *   that starts with `=`, `+`, `-`, `@`, a tab, a carriage return or an apostrophe gets one more
+ *   that starts with `=`, `+`, `-`, `@`, a tab, a carriage return, a line feed or an apostrophe gets one more
  *   apostrophe in front (`=1+1` → `'=1+1`, `'quoted` → `''quoted`), which spreadsheet programs
  *   take as "text, not a formula". Numbers are never changed (`-4` stays a number). The change is
  *   exact to undo: remove one leading apostrophe from every text cell that starts with one. The
@@ -34,10 +34,12 @@ const EXACT: CsvOptions = { spreadsheetSafe: false };
 
 /**
  * The first characters that make a spreadsheet program read a cell as a formula (`=`, `+`, `-`,
- * `@`, tab, carriage return: OWASP, "CSV Injection", from memory), and the apostrophe itself, so
- * that removing one leading apostrophe always gives the text back.
+ * `@`, tab, carriage return, line feed: read in OWASP's page "CSV Injection", its source
+ * pages/attacks/CSV_Injection.md in OWASP/www-community at 0e5e8f00, August 2025, which added the
+ * line feed), and the apostrophe itself, so that removing one leading apostrophe always gives the
+ * text back.
  */
-const FORMULA_START = /^[=+\-@\t\r']/;
+const FORMULA_START = /^[=+\-@\t\r\n']/;
 
 /** Text as `spreadsheetSafe` writes it: with an apostrophe in front when it starts like a formula. */
 export function spreadsheetText(text: string): string {
