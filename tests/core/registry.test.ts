@@ -300,9 +300,18 @@ describe('LOINC codes checked on a page', () => {
     // or Plasma", permitted unit g/dL, specimen Ser/Plas.
     expectCode(at('albumin', 'labs'), '1751-7', 'Albumin [Mass/volume] in Serum or Plasma', 'https://github.com/HL7/Vulcan-schedule-ig/blob/1814964ae606eed4b0104fbb6034d0671fa46b26/input/fsh/observationdefinitions/LOINC-1751-7-ObservationDefinition.fsh');
     expect(ucum('albumin')).toBe('g/dL');
-    // Not found on such a page (LOINC pages, FHIR examples and value sets, LOINC table copies searched): 1960-4
-    // "Bicarbonate [Moles/volume] in Arterial blood" keeps the project reference notes as its source.
-    expect(at('hco3', 'abg')?.source).toBeUndefined();
+  });
+
+  it('arterial bicarbonate, read in a table of LOINC names (December 2026, session 28)', () => {
+    // Not found on a LOINC page, a FHIR example or a value set in session 26; read since in LHNCBC's flowsheet-lhc
+    // (src/stores/c2.js at 43491805), a table whose columns are the LOINC code (LOINC_MERGED), the LOINC long common
+    // name (LONG_COMMON_NAME_LOINC) and short name (LOINC_SHORTNAME): its row "HCO3 BldA Qn Calc" gives 1960-4,
+    // "Bicarbonate [Moles/volume] in Arterial blood", HCO3 BldA-sCnc, in mmol/L; the rows above it give 2019-8 and 2703-7 as
+    // the registry has them, and the blood (not arterial) bicarbonate as 1959-6, a code of its own.
+    const flowsheet = 'https://github.com/LHNCBC/flowsheet-lhc/blob/43491805f8a2ca29d8b49d76e7fe0a6850ff4301/src/stores/c2.js';
+    expectCode(at('hco3', 'abg'), '1960-4', 'Bicarbonate [Moles/volume] in Arterial blood', flowsheet);
+    expect(unitById(fieldById('hco3')!.unit!)!.ucum).toBe('mmol/L');
+    expect(loincCodesOf(fieldById('hco3')!).map((c) => c.code)).not.toContain('1959-6');
   });
 
   it('no code is left marked as recalled', () => {
