@@ -1,7 +1,8 @@
 // An FiO2 above what a Venturi mask gives (PN322). Venturi settings give 24 to 60 % oxygen:
 // European Respiratory Society, European Lung White Book, Principles of respiratory therapy,
 // figure 2 (colour-coded 24 to 60 %); O'Driscoll BR et al., BTS guideline for oxygen use in adults
-// in healthcare and emergency settings, Thorax 2017 (settings up to 60 %: from memory).
+// in healthcare and emergency settings, Thorax 2017, not read; the settings 24 to 60 % read in a
+// teaching table of Venturi colour codes at md3.info/skills/oxygen/amplified.
 import { describe, expect, it } from 'vitest';
 import { checkNote } from '../../server/src/core';
 import { allDerivations } from '../../server/src/core/analysis/analyse';

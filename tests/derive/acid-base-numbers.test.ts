@@ -5,7 +5,7 @@
 // Madias, JASN 2010;21:920–923, from memory). Anion gap Na − (Cl + HCO3), upper normal 12 mmol/L
 // (common practice, no source); albumin correction + 2.5 × (4.0 − albumin g/dL) (Figge J et al.,
 // Crit Care Med 1998;26:1807–1810, from memory); delta ratio (AG − 12) ÷ (24 − HCO3) with bands
-// < 0.4, 0.4–0.8, 0.8–2, > 2 (Rastegar A, JASN 2007;18:2429–2431, from memory).
+// < 0.4, 0.4–0.8, 0.8–2, > 2 (Rastegar A, JASN 2007;18:2429–2431; the bands as read in Wikipedia, "Delta ratio").
 import { describe, expect, it } from 'vitest';
 import { acidBaseLabel } from '../../server/src/core/service/hints';
 import type { AcidBaseFinding } from '../../server/src/core/derive/model';
@@ -82,7 +82,7 @@ describe('the anion gap and the delta ratio are named where they shape the readi
   it('a high gap with the laboratory bicarbonate not below 24 names that bicarbonate, not the gas HCO3 below 24 it shows beside it', () => {
     // AG 140 − (100 + 24) = 16 mmol/L with the serum bicarbonate, which the gap takes; the gas HCO3 is
     // 22.1 (pH 7.38, PaCO2 38: 0.0307 × 38 × 10^1.28 ≈ 22.2, Henderson–Hasselbalch). A high gap with
-    // no fall in bicarbonate: delta ratio above 2 (Rastegar 2007, from memory).
+    // no fall in bicarbonate: delta ratio above 2 (Rastegar 2007; the bands as read in Wikipedia, "Delta ratio").
     const { text, acidBase } = acidBaseReading('abg 7.38/38/90/22.1\nlabs na 140, cl 100, hco3 24');
     expect(text).toBe('Consistent with normal acid–base balance by pH, PaCO2 and HCO3 (pH 7.38, PaCO2 38 mmHg, HCO3 22.1 mmol/L); also consistent with an added metabolic acidosis and metabolic alkalosis (anion gap 16 mmol/L, above 12 mmol/L, with a serum HCO3 of 24.0 mmol/L, which has not fallen below 24 mmol/L).');
     expect(acidBaseLabel(acidBase)).toBe('normal pH; consistent with met. acidosis + met. alkalosis');
@@ -90,7 +90,7 @@ describe('the anion gap and the delta ratio are named where they shape the readi
 
   it('a mixed acidosis names the anion gap of its metabolic part, as a metabolic acidosis does', () => {
     // AG 140 − (95 + 18) = 27 mmol/L, above 12 (common practice, no source); delta ratio (27 − 12) ÷
-    // (24 − 18) = 2.50 (Rastegar 2007, from memory), its HCO3 above what the gap explains being the
+    // (24 − 18) = 2.50 (Rastegar 2007; the bands as read in Wikipedia, "Delta ratio"), its HCO3 above what the gap explains being the
     // respiratory acidosis's. pH 7.10 fits (0.0307 × 60 × 10^1.0 ≈ 18.4, Henderson–Hasselbalch).
     const { text, acidBase } = acidBaseReading('abg 7.10/60/90/18\nlabs na 140, cl 95');
     expect(text).toBe('Consistent with a mixed metabolic and respiratory acidosis, the metabolic part with a high anion gap (pH 7.10; PaCO2 60 mmHg above 45 mmHg and HCO3 18.0 mmol/L below 22 mmol/L; anion gap 27 mmol/L, delta ratio 2.50).');
@@ -131,7 +131,7 @@ describe('a value on the end of a range or on a limit on paper is on it here, wh
     expect(derived(`@ 08:00\noxygen room air\n${gas}`, 'anion_gap').value).toBeCloseTo(12, 9);
   });
 
-  it('so is the delta ratio: none from a gap of 12 mmol/L, which is not raised (Rastegar 2007, from memory)', () => {
+  it('so is the delta ratio: none from a gap of 12 mmol/L, which is not raised (Rastegar 2007; the bands as read in Wikipedia, "Delta ratio")', () => {
     expect(() => derived('@ 08:00\noxygen room air\nabg 7.39/38/90/22.9\nlabs na 135, cl 100.1', 'delta_ratio')).toThrow(/was not derived/);
   });
 });
@@ -148,7 +148,7 @@ describe('the anion gap of a venous gas takes its venous bicarbonate', () => {
     const gap = derived(note, 'anion_gap');
     expect(gap.value).toBeCloseTo(14.5, 9);
     expect(gap.inputs.map((t) => t.fieldId)).toEqual(['na', 'cl', 'hco3_venous']);
-    // Delta ratio (14.5 − 12) ÷ (24 − 23.5) = 5 (Rastegar 2007, from memory).
+    // Delta ratio (14.5 − 12) ÷ (24 − 23.5) = 5 (Rastegar 2007; the bands as read in Wikipedia, "Delta ratio").
     expect(derived(note, 'delta_ratio').value).toBeCloseTo(5, 9);
   });
 

@@ -8,7 +8,7 @@ import { readings } from './helpers';
 const WINTERS = 'Albert MS, Dell RB, Winters RW. Ann Intern Med 1967;66:312–322 (from memory): PaCO2 = 1.5 × HCO3 + 8 ± 2';
 const ALKALOSIS_RULE = 'Berend K, de Vries APJ, Gans ROB. NEJM 2014;371:1434–1445 (read in its reproduction at physician.tw): PaCO2 = 40 + 0.7 × (HCO3 − 24) ± 2';
 const RESPIRATORY = 'Narins RG, Emmett M. Medicine 1980;59:161–187; Adrogué HJ, Madias NE. JASN 2010;21:920–923 (from memory): ΔHCO3 per 10 mmHg ΔPaCO2';
-const DELTA = 'Rastegar A. JASN 2007;18:2429–2431 (from memory): delta ratio bands';
+const DELTA = 'Rastegar A. JASN 2007;18:2429–2431, its bands as read in Wikipedia, Delta ratio: delta ratio bands';
 
 const rows: { name: string; gas: string; reading: RegExp; source: string }[] = [
   { name: 'metabolic acidosis, compensated (HCO3 10 → PaCO2 21–25)', gas: 'abg 7.25/23/95/10', reading: /^Consistent with metabolic acidosis \(pH 7\.25, PaCO2 23 mmHg, HCO3 10\.0 mmol\/L\), with the expected respiratory response \(PaCO2 within the expected 21–25 mmHg\)\.$/, source: WINTERS },

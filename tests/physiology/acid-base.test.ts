@@ -78,7 +78,7 @@ describe('anion gap', () => {
     expect(anionGapAlbuminCorrected(10, 2, 4.4)).toBeCloseTo(16, 12);
     expect(anionGapAlbuminCorrected(10, -1)).toBeNull();
   });
-  it('delta ratio (Rastegar, JASN 2007; from memory): AG 24, HCO3 12 → 1.0 (pure high gap); AG 14, HCO3 10 → 0.14 (mostly normal gap)', () => {
+  it('delta ratio (Rastegar, JASN 2007; the bands as read in Wikipedia, Delta ratio): AG 24, HCO3 12 → 1.0 (pure high gap); AG 14, HCO3 10 → 0.14 (mostly normal gap)', () => {
     expect(deltaRatio(24, 12)).toBeCloseTo(1, 12);
     expect(deltaRatio(14, 10)).toBeCloseTo(2 / 14, 12);
     expect(deltaRatio(20, 24)).toBeNull();
@@ -92,7 +92,7 @@ describe('anion gap', () => {
     [2, 'high-gap-acidosis'],
     [2.5, 'high-gap-acidosis-with-alkalosis'],
   ];
-  it.each(bands)('delta ratio %f reads as %s (Rastegar 2007; from memory)', (ratio, band) => {
+  it.each(bands)('delta ratio %f reads as %s (Rastegar 2007; the bands as read in Wikipedia, Delta ratio)', (ratio, band) => {
     expect(deltaRatioBand(ratio)).toBe(band);
   });
   it('a ratio on a band boundary on paper is on it here, whatever floating point makes of the quotient (Rastegar 2007 bands; from memory)', () => {
@@ -195,7 +195,7 @@ const W = 'Winters: Albert, Dell & Winters 1967';
 const ALK = 'metabolic alkalosis rule: Berend et al. 2014';
 const RESP = 'respiratory rules: Narins & Emmett 1980; Adrogué & Madias 2010 (from memory)';
 const STEPS = 'stepwise approach: Berend et al. 2014';
-const DELTA = 'delta ratio: Rastegar 2007 (from memory)';
+const DELTA = 'delta ratio: Rastegar 2007, its bands as read in Wikipedia, Delta ratio';
 const COMP = 'uncompensated, partially and fully compensated: common practice, no source';
 
 const classifierCases: readonly ClassifierCase[] = [

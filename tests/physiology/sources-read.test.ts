@@ -29,6 +29,11 @@
  * Read in December 2026 (session 26):
  * - The conventional mmHg of NIST SP 811 appendix B.8, 133.3224 Pa, as reproduced in the R package
  *   NISTunits (rdrr.io). The LOINC codes read in that session are checked in tests/core/registry.test.ts.
+ *
+ * Read in December 2026 (session 28), each beside its test at the end of this file: the bands of the
+ * delta ratio; NIST's conventional cmH2O and foot; the usual 2–5 mmHg of the arterial to end-tidal
+ * CO2 gradient; the compliance of a healthy chest wall and respiratory system; a later form of Buck's
+ * vapour pressure equation; the Safe Harbor list of identifiers; the Venturi settings and their flows.
  */
 import { describe, expect, it } from 'vitest';
 import { VT_PER_KG_HARD_MAX, VT_PER_KG_USUAL } from '../../server/src/core/analysis/per-kg-volume';
@@ -45,7 +50,13 @@ import {
 import { OSI_MAX_SPO2_PERCENT, oxygenationIndex, oxygenSaturationIndex, SOURCES as GAS_EXCHANGE } from '../../server/src/core/physiology/gas-exchange';
 import { SOURCES as MECHANICS } from '../../server/src/core/physiology/mechanics';
 import { VENTURI_PERCENT } from '../../server/src/core/syntax/parser';
-import { MMHG_PER_KPA, PA_PER_MMHG, SOURCES as UNIT_SOURCES } from '../../server/src/core/physiology/units';
+import { METRES_PER_FOOT, MMHG_PER_CMH2O, MMHG_PER_KPA, PA_PER_CMH2O, PA_PER_MMHG, SOURCES as UNIT_SOURCES } from '../../server/src/core/physiology/units';
+import { deltaRatioBand } from '../../server/src/core/physiology/acid-base';
+import { COMPLIANCE_CEILING_ML_PER_CMH2O } from '../../server/src/core/physiology/mechanics';
+import { SOURCES as ATMOSPHERE, waterVapourPressureMmhg } from '../../server/src/core/physiology/atmosphere';
+import { PLACEHOLDERS, type PrivacyKind } from '../../server/src/core/privacy/types';
+import { PRIVACY_CHECKS, possibleName } from '../../server/src/core/checks/privacy';
+import { derivedDef } from '../../server/src/core/derive/registry';
 
 /** Per mmHg, as read; Pneumark's spans are per 10 mmHg. */
 const NARINS_EMMETT_AS_ADAPTED = { acuteAcidosis: 0.1, chronicAcidosis: 0.35, acuteAlkalosis: 0.2, chronicAlkalosis: 0.5 } as const;
@@ -188,10 +199,11 @@ describe('ARDS Network 2000: the tidal volumes per kg its abstract gives, as rea
 // cardiac output", citing the AARC guideline of 2003: Malley WJ, Clinical Blood Gases, 2nd edition,
 // 2005, pp 406–415, as quoted at sagamigaoka-ac.com.
 describe('AARC 2003: the arterial to end-tidal CO2 gradient, as read', () => {
-  it('the citation gives the 5 mmHg read and where, and says the lower figure was not read', () => {
+  it('the citation gives the 5 mmHg read and where, and where its lower figure was read since (session 28)', () => {
     expect(GAS_EXCHANGE['arterial-end-tidal-co2']).toContain('less than 5 mmHg');
     expect(GAS_EXCHANGE['arterial-end-tidal-co2']).toContain('Malley WJ');
-    expect(GAS_EXCHANGE['arterial-end-tidal-co2']).toContain('its lower figure, 2 mmHg, not read');
+    expect(GAS_EXCHANGE['arterial-end-tidal-co2']).not.toContain('its lower figure, 2 mmHg, not read');
+    expect(GAS_EXCHANGE['arterial-end-tidal-co2']).toContain('derangedphysiology.com');
   });
 });
 
@@ -228,5 +240,158 @@ describe('NIST SP 811: the conventional mmHg, as read in its reproduction', () =
     expect(UNIT_SOURCES['nist-sp811']).toContain('NISTunits');
     expect(UNIT_SOURCES['nist-sp811']).toContain('rdrr.io/rforge/NISTunits/man/NISTmillimeterOfMercuryConvtnlTOpascal.html');
     expect(UNIT_SOURCES['nist-sp811']).not.toContain('conventional mmHg = 133.3224 Pa, conventional cmH2O = 98.0665 Pa, international foot = 0.3048 m, degree Fahrenheit) (from memory)');
+  });
+});
+
+// ---------------------------------------------------------------------------------------------
+// Read in December 2026 (session 28).
+
+// The bands of the delta ratio as read in the English Wikipedia article "Delta ratio" (its copy at
+// wiki-gateway.eudic.net/wikipedia_en/Delta_Ratio.html): "< 0.4 due to a pure NAGMA; 0.4 - 0.8 due to a
+// mixed NAGMA + HAGMA; 0.8 - 2.0 due to a pure HAGMA; > 2.0 due to a mixed HAGMA + metabolic alkalosis
+// (or pre-existing compensated respiratory acidosis)". Rastegar 2007 itself was read only in its opening.
+const DELTA_RATIO_BANDS_AS_READ = [
+  [0, 0.4, 'normal-gap-acidosis'],
+  [0.4, 0.8, 'mixed-high-and-normal-gap-acidosis'],
+  [0.8, 2, 'high-gap-acidosis'],
+] as const;
+
+describe('the delta ratio bands, as read', () => {
+  it.each(DELTA_RATIO_BANDS_AS_READ)('%f to %f reads as %s, and its lower end belongs to it', (low, high, band) => {
+    expect(deltaRatioBand(low)).toBe(band);
+    expect(deltaRatioBand((low + high) / 2)).toBe(band);
+    expect(deltaRatioBand(high - 0.01)).toBe(band);
+  });
+
+  it('2.0 is the top of the uncomplicated high-gap band, and above it a metabolic alkalosis is added', () => {
+    expect(deltaRatioBand(2)).toBe('high-gap-acidosis');
+    expect(deltaRatioBand(2.01)).toBe('high-gap-acidosis-with-alkalosis');
+    expect(deltaRatioBand(5)).toBe('high-gap-acidosis-with-alkalosis');
+  });
+
+  it('the citation says where the bands were read, and what reads them otherwise', () => {
+    expect(ACID_BASE['rastegar-2007']).toContain('wiki-gateway.eudic.net/wikipedia_en/Delta_Ratio.html');
+    expect(ACID_BASE['rastegar-2007']).toContain('1 to 2, not 0.8 to 2');
+    expect(ACID_BASE['rastegar-2007']).not.toContain('from memory');
+  });
+});
+
+// NIST SP 811's other factors, as reproduced in the R package NISTunits (NISTunits/R/NISTfactors.R, in the
+// stored copy TypeFox/R-Examples): "NISTcmOfWaterConvtnlTOpascal<-function(cmOfWaterConvtnl) cmOfWaterConvtnl *
+// 98.0665" (centimeter of water, conventional) and "NISTftTOmeter<-function(ft) ft * 0.3048".
+const NIST_PA_PER_CMH2O_CONVENTIONAL = 98.0665;
+const NIST_METRES_PER_FOOT = 0.3048;
+
+describe('NIST SP 811: the conventional cmH2O and the foot, as read in its reproduction', () => {
+  it('Pneumark uses the factors as read, exactly', () => {
+    expect(PA_PER_CMH2O).toBe(NIST_PA_PER_CMH2O_CONVENTIONAL);
+    expect(METRES_PER_FOOT).toBe(NIST_METRES_PER_FOOT);
+    expect(MMHG_PER_CMH2O).toBeCloseTo(NIST_PA_PER_CMH2O_CONVENTIONAL / NIST_B8_PA_PER_MMHG, 5);
+  });
+
+  it('the citation names the functions read, and keeps the degree Fahrenheit as recalled', () => {
+    expect(UNIT_SOURCES['nist-sp811']).toContain('NISTcmOfWaterConvtnlTOpascal multiplies by 98.0665');
+    expect(UNIT_SOURCES['nist-sp811']).toContain('NISTftTOmeter by 0.3048');
+    expect(UNIT_SOURCES['nist-sp811']).toContain('degree Fahrenheit, (°F − 32) ÷ 1.8, from memory');
+  });
+});
+
+// The arterial to end-tidal CO2 gradient: "Normal PaCO2-EtCO2 difference is 2-5 mmHg (Satoh et al, 2015)", read
+// at derangedphysiology.com; "this gradient is roughly 2 to 5 mmHg", read on Medtronic's page "Understanding the gap".
+const CO2_GRADIENT_AS_READ_MMHG = { low: 2, high: 5 } as const;
+
+describe('the usual arterial to end-tidal CO2 gradient, as read', () => {
+  it('the note on the derived value gives the range read', () => {
+    const note = `${CO2_GRADIENT_AS_READ_MMHG.low}–${CO2_GRADIENT_AS_READ_MMHG.high} mmHg`;
+    expect(GAS_EXCHANGE['arterial-end-tidal-co2']).toContain(`usually about ${note}`);
+    expect(derivedDef('paco2_etco2_difference')?.source).toContain('derangedphysiology.com');
+  });
+});
+
+// The compliance of a healthy adult, as read in the abstract of "Compliance of the respiratory system and its
+// components in health and obesity" (scilit.com): "The mean compliance of the total respiratory system was .119
+// l/cm H2O in normal individuals"; "The compliance of the chest wall was .224 l/cm H2O in normal subjects".
+const HEALTHY_TOTAL_ML_PER_CMH2O = 119;
+const HEALTHY_CHEST_WALL_ML_PER_CMH2O = 224;
+
+describe('the compliance of healthy lungs and chest wall, as read', () => {
+  it('in series, the lungs come to about 250 mL/cmH2O: each part about 200, the whole about 100 to 120', () => {
+    const lungs = 1 / (1 / HEALTHY_TOTAL_ML_PER_CMH2O - 1 / HEALTHY_CHEST_WALL_ML_PER_CMH2O);
+    expect(lungs).toBeCloseTo(253.9, 1);
+    for (const part of [lungs, HEALTHY_CHEST_WALL_ML_PER_CMH2O]) expect(part / 200).toBeGreaterThan(1 - 0.3);
+    for (const part of [lungs, HEALTHY_CHEST_WALL_ML_PER_CMH2O]) expect(part / 200).toBeLessThan(1 + 0.3);
+  });
+
+  it('a healthy respiratory system breathing spontaneously stays below the ceiling Pneumark reports above', () => {
+    expect(HEALTHY_TOTAL_ML_PER_CMH2O).toBeLessThan(COMPLIANCE_CEILING_ML_PER_CMH2O);
+    expect(MECHANICS['compliance-ceiling']).toContain('0.224 L/cmH2O');
+    expect(MECHANICS['compliance-ceiling']).toContain('0.119 L/cmH2O');
+  });
+});
+
+// A later form of Buck's equation, over liquid water, as read in the Wikipedia article "Arden Buck equation":
+// Ps(T) = 6.1121 exp((18.678 − T/234.5)(T/(257.14 + T))) hPa, T in °C. Pneumark uses the 1981 form (recalled).
+function buckLaterFormMmhg(tempC: number): number {
+  return (6.1121 * Math.exp((18.678 - tempC / 234.5) * (tempC / (257.14 + tempC))) * 100) / PA_PER_MMHG;
+}
+
+describe('Buck: the vapour pressure Pneumark uses against the later form as read', () => {
+  it.each([0, 10, 20, 30, 37, 39, 42])('%f °C: within 0.05 %', (tempC) => {
+    const ours = waterVapourPressureMmhg(tempC);
+    expect(ours).not.toBeNull();
+    expect(Math.abs((ours ?? 0) / buckLaterFormMmhg(tempC) - 1)).toBeLessThan(0.0005);
+  });
+
+  it('the citation says so, and that the 1981 coefficients are recalled', () => {
+    expect(ATMOSPHERE['buck-1981']).toContain('en.wikipedia.org/wiki/Arden_Buck_equation');
+    expect(ATMOSPHERE['buck-1981']).toContain('from memory, as are the coefficients 17.502 and 240.97');
+  });
+});
+
+// The Safe Harbor list of 45 CFR 164.514(b)(2), as quoted at johndcook.com: "(A) Names; (B) All geographic
+// subdivisions smaller than a State …; (C) All elements of dates (except year) for dates directly related to an
+// individual …; (D) Telephone numbers; … (F) Electronic mail addresses; … (H) Medical record numbers; …".
+const SAFE_HARBOR_AS_READ: Readonly<Record<PrivacyKind, string>> = {
+  'name': '(A) Names',
+  'postal-code': '(B) All geographic subdivisions smaller than a State',
+  'birth-date': '(C) All elements of dates (except year)',
+  'calendar-date': '(C) All elements of dates (except year)',
+  'phone': '(D) Telephone numbers',
+  'email': '(F) Electronic mail addresses',
+  'record-number': '(H) Medical record numbers',
+};
+
+describe('HIPAA Safe Harbor: each kind of identifier Pneumark looks for is on the list as read', () => {
+  it('every kind has its item of the list', () => {
+    expect(Object.keys(SAFE_HARBOR_AS_READ).sort()).toEqual(Object.keys(PLACEHOLDERS).sort());
+  });
+
+  it('the privacy checks say where the list was read', () => {
+    for (const check of PRIVACY_CHECKS) expect(check.source, check.code).toContain('johndcook.com/blog/hipaa-identifiers-explained');
+    expect(possibleName.source).not.toContain('from memory');
+  });
+});
+
+// The Venturi settings as read in a teaching table of colour codes (md3.info/skills/oxygen/amplified): blue 24 %
+// at 2–4 L/min, white 28 % at 4–6, orange 31 % at 6–8, yellow 35 % at 8–10, red 40 % at 10–12, green 60 % at 12–15.
+const VENTURI_TABLE_AS_READ = [[24, 2, 4], [28, 4, 6], [31, 6, 8], [35, 8, 10], [40, 10, 12], [60, 12, 15]] as const;
+
+describe('the Venturi settings and their flows, as read', () => {
+  it('every setting lies among the oxygen fractions Pneumark reads after venturi, and every flow below them', () => {
+    expect(VENTURI_TABLE_AS_READ[0][0]).toBe(VENTURI_PERCENT.min);
+    expect(VENTURI_TABLE_AS_READ[VENTURI_TABLE_AS_READ.length - 1]![0]).toBe(VENTURI_PERCENT.max);
+    for (const [percent, lowFlow, highFlow] of VENTURI_TABLE_AS_READ) {
+      expect(percent).toBeGreaterThanOrEqual(VENTURI_PERCENT.min);
+      expect(percent).toBeLessThanOrEqual(VENTURI_PERCENT.max);
+      expect(lowFlow).toBeGreaterThanOrEqual(2);
+      expect(highFlow).toBeLessThanOrEqual(15);
+      expect(highFlow).toBeLessThan(VENTURI_PERCENT.min);
+    }
+  });
+
+  it('the citations say where the settings were read', () => {
+    expect(venturiSetting.source).toContain('md3.info/skills/oxygen/amplified');
+    expect(venturiFio2High.source).toContain('md3.info/skills/oxygen/amplified');
+    expect(venturiSetting.source).not.toContain('from memory');
   });
 });

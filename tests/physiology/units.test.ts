@@ -8,6 +8,8 @@
  */
 import { UcumLhcUtils } from '@lhncbc/ucum-lhc';
 import fc from 'fast-check';
+import { readFileSync } from 'node:fs';
+import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
 import * as units from '../../server/src/core/physiology/units';
 import { convert, unitById } from '../../server/src/core/fields/units';
@@ -53,6 +55,42 @@ describe('pressure constants', () => {
   it('1 cmH2O = 98.0665 Pa = 0.735559 mmHg (NIST SP 811) and agrees with UCUM', () => {
     expect(98.0665 / 133.322387415).toBeCloseTo(MMHG_PER_CMH2O, 6);
     expectRelativelyClose(MMHG_PER_CMH2O, ucumConvert('cm[H2O]', 1, 'mm[Hg]'));
+  });
+});
+
+// The library the factors below were checked with, and its version (a newer one may round UCUM's
+// definitions otherwise: read this test again before moving the pin).
+const UCUM_LHC_VERSION = (JSON.parse(readFileSync(fileURLToPath(new URL('../../node_modules/@lhncbc/ucum-lhc/package.json', import.meta.url)), 'utf8')) as { version: string }).version;
+
+describe('Pneumark\'s factors, checked against UCUM as implemented by @lhncbc/ucum-lhc 7.1.10', () => {
+  it('is that version of the library', () => {
+    expect(UCUM_LHC_VERSION).toBe('7.1.10');
+  });
+  it('mmHg: UCUM\'s mm[Hg] is 133.322 Pa (133.3220, rounded), the conventional 133.322387 within 3e-6', () => {
+    expect(ucumConvert('mm[Hg]', 1, 'Pa')).toBeCloseTo(133.322, 9);
+    expectRelativelyClose(units.PA_PER_MMHG, ucumConvert('mm[Hg]', 1, 'Pa'), 3e-6);
+    expectRelativelyClose(MMHG_PER_KPA, ucumConvert('kPa', 1, 'mm[Hg]'), 3e-6);
+  });
+  it('cmH2O: 98.0665 Pa exactly, as UCUM\'s cm[H2O] (m[H2O] = 9.80665 kPa)', () => {
+    expect(ucumConvert('cm[H2O]', 1, 'Pa')).toBeCloseTo(units.PA_PER_CMH2O, 9);
+  });
+  it('the foot: 0.3048 m exactly, as UCUM\'s [ft_i]', () => {
+    expect(ucumConvert('[ft_i]', 1, 'm')).toBeCloseTo(units.METRES_PER_FOOT, 12);
+  });
+  it('the degree Fahrenheit: 98.6 °F is 37 °C, as UCUM\'s [degF]', () => {
+    expect(celsiusFromFahrenheit(98.6)).toBeCloseTo(ucumConvert('[degF]', 98.6, 'Cel'), 9);
+    expect(ucumConvert('[degF]', 98.6, 'Cel')).toBeCloseTo(37, 9);
+  });
+  it('haemoglobin g/dL ↔ g/L: 10 g/L per g/dL, as the unit registry reads and writes it', () => {
+    const gdl = unitById('g/dL')!;
+    const gl = unitById('g/L')!;
+    for (const v of [4.5, 9.8, 13.6, 21]) {
+      expect(convert(v, gdl, gl)).toBeCloseTo(ucumConvert('g/dL', v, 'g/L'), 9);
+      expect(convert(v * 10, gl, gdl)).toBeCloseTo(ucumConvert('g/L', v * 10, 'g/dL'), 9);
+    }
+  });
+  it('the standard atmosphere: 101 325 Pa, as UCUM\'s atm', () => {
+    expect(ucumConvert('atm', 1, 'Pa')).toBe(units.PA_PER_ATMOSPHERE);
   });
 });
 

@@ -13,7 +13,7 @@ import { defineCheck, headerLineCount, type CheckContext, type CheckDef, type Ch
 import type { Kept } from '../util/small-store';
 import { NONE } from '../util/lists';
 
-const SOURCE = 'de-identification practice (common practice, no source); HIPAA Safe Harbor list of identifiers, 45 CFR 164.514(b)(2) (from memory)';
+const SOURCE = 'de-identification practice (common practice, no source); HIPAA Safe Harbor list of identifiers, 45 CFR 164.514(b)(2), its eighteen kinds from (A) names to (R) any other unique identifying number read in their quotation at johndcook.com/blog/hipaa-identifiers-explained (the regulation itself not read)';
 
 function placeholderFix(line: number, m: PrivacyMatch): Fix {
   const placeholder = PLACEHOLDERS[m.kind];

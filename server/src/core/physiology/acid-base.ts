@@ -26,7 +26,7 @@ export const SOURCES = Object.freeze({
   'figge-1998':
     'Figge J, Jabor A, Kazda A, Fencl V. Anion gap and hypoalbuminemia. Crit Care Med 1998;26(11):1807–1810: the observed gap plus 0.25 × (normal − observed albumin) in g/L, 2.5 in g/dL (read in its abstract, PubMed 9824071; the normal albumin is not given there, 4.0 g/dL here and 4.4 in some use).',
   'rastegar-2007':
-    'Rastegar A. Use of the ΔAG/ΔHCO3− ratio in the diagnosis of mixed acid-base disorders. J Am Soc Nephrol 2007;18(9):2429–2431 (the citation, doi 10.1681/ASN.2006121408, read in its opening paragraph, which gives albumin 2.5 mEq/L of gap per g/dL; the bands of the ratio not read there: from memory).',
+    'Rastegar A. Use of the ΔAG/ΔHCO3− ratio in the diagnosis of mixed acid-base disorders. J Am Soc Nephrol 2007;18(9):2429–2431 (the citation, doi 10.1681/ASN.2006121408, read in its opening paragraph, which gives albumin 2.5 mEq/L of gap per g/dL; the bands of the ratio not read there). The bands Pneumark uses, below 0.4 a normal-gap (hyperchloraemic) acidosis, 0.4 to 0.8 a high-gap and a normal-gap acidosis together, 0.8 to 2 an uncomplicated high-gap acidosis and above 2 a high-gap acidosis with a metabolic alkalosis or a compensated respiratory acidosis, read in the English Wikipedia article "Delta ratio" (in its copy at wiki-gateway.eudic.net/wikipedia_en/Delta_Ratio.html, undated, which names no source for them); ABG teaching notes at scribd.com/document/629212188 give the same bands but 1 to 2, not 0.8 to 2, as usual for an uncomplicated high-gap acidosis.',
   'anion-gap':
     'Anion gap = Na − (Cl + HCO3), optionally + K; normal about 12 mmol/L (8–12 with modern analysers): common practice, no source.',
   'acid-base-reference-intervals':

@@ -1609,7 +1609,8 @@ function bilevelPairKeys(chunk: Word, chunks: readonly Word[], at: number, items
 
 /**
  * The oxygen fractions of the Venturi settings, as a bare percentage: 24 to 60 % (European Lung
- * White Book, Principles of respiratory therapy, figure 2; BTS 2017, from memory).
+ * White Book, Principles of respiratory therapy, figure 2; the settings 24, 28, 31, 35, 40 and 60 %
+ * read in a teaching table of Venturi colour codes at md3.info/skills/oxygen/amplified).
  */
 export const VENTURI_PERCENT = { min: 24, max: 60 } as const;
 
@@ -1617,8 +1618,9 @@ export const VENTURI_PERCENT = { min: 24, max: 60 } as const;
  * What the number after `venturi` is. A Venturi mask is set by the oxygen fraction it gives, not by
  * a flow (its settings give about 24, 28, 31, 35, 40 and 60 % oxygen, each at an oxygen flow of some
  * 2 to 15 L/min the device names: O'Driscoll BR et al., BTS guideline for oxygen use in adults in
- * healthcare and emergency settings, Thorax 2017;72 Suppl 1, from memory; a 28 % mask at 4 L/min read
- * in table 1 of a Breathe review adapted from the 2008 BTS guideline, breathe.ersjournals.com). So the number is its FiO2 where it
+ * healthcare and emergency settings, Thorax 2017;72 Suppl 1, not read; a 28 % mask at 4 L/min read
+ * in table 1 of a Breathe review adapted from the 2008 BTS guideline, breathe.ersjournals.com; the
+ * six settings at oxygen flows from 2 to 15 L/min read in a teaching table at md3.info). So the number is its FiO2 where it
  * can only be one: a fraction (above 0, up to 1: no Venturi mask runs at 0.4 L/min) or a
  * percentage (`venturi 40 %`); and a bare number of a setting (24–60, above any flow a Venturi mask
  * takes), as a percentage, which `venturiSettingIssue` reports. Any other number, and one written in
