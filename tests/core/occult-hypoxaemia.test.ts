@@ -39,9 +39,28 @@ describe('PN406 thresholds, as read (Valbuena, Sjoding and coauthors, BMJ 2022)'
     expect(OCCULT_SPO2_FROM_PERCENT).toBe(92);
   });
 
-  it('its source names where they were read, and keeps the 2020 letter marked as recalled', () => {
+  it('its source names where they were read, and what of the 2020 letter is still recalled', () => {
     expect(occultHypoxaemiaCheck.source).toContain('BMJ 2022;378:e069775');
     expect(occultHypoxaemiaCheck.source).toContain('read in the abstract');
-    expect(occultHypoxaemiaCheck.source).toMatch(/2477–2478 \(from memory\)/);
+    expect(occultHypoxaemiaCheck.source).not.toMatch(/2477–2478 \(from memory\)/);
+  });
+});
+
+// The 2020 letter as read on its PubMed page (33326721, December 2026, session 28): "Racial Bias in Pulse Oximetry
+// Measurement", N Engl J Med 2020 Dec 17;383(25):2477-2478, doi 10.1056/NEJMc2029240, "Michael W Sjoding et al.";
+// the legend of its figure 1: "The shaded area indicates an arterial oxygen saturation of less than 88%". Its first
+// three authors also on AHRQ PSNet's page ("Sjoding MW, Dickson RP, Iwashyna TJ, et al."); the last two, and the
+// SpO2 of 92–96 %, not read there.
+const SJODING_2020_SHADED_SAO2_BELOW_PERCENT = 88;
+
+describe('PN406: the 2020 letter, as read on its PubMed page', () => {
+  it('shades an SaO2 below 88 %, the threshold Pneumark uses', () => {
+    expect(OCCULT_SAO2_BELOW_PERCENT).toBe(SJODING_2020_SHADED_SAO2_BELOW_PERCENT);
+  });
+
+  it('its source gives the citation as read and where, and marks what is recalled', () => {
+    expect(occultHypoxaemiaCheck.source).toContain('N Engl J Med 2020;383(25):2477–2478, doi 10.1056/NEJMc2029240');
+    expect(occultHypoxaemiaCheck.source).toContain('PubMed 33326721');
+    expect(occultHypoxaemiaCheck.source).toContain('the last two authors and its SpO2 of 92–96 % from memory');
   });
 });
