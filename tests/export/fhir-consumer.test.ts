@@ -53,6 +53,13 @@ describe('which note a Bundle came from', () => {
     }
   });
 
+  it('README.md names both systems, and says the value is the `file` column', () => {
+    const readme = readFileSync('README.md', 'utf8').replace(/\s+/g, ' ');
+    expect(readme).toContain('`system` `urn:pneumark:note`');
+    expect(readme).toContain('`value` the note\'s path as the `file` column of CSV and JSON Lines has it');
+    expect(readme).toContain('in the system `urn:pneumark:redacted-note`');
+  });
+
   it('a redacted export names the note by its pseudonym, in a system of its own (a pseudonym is a place in one run, not a path)', () => {
     const result = checked('@ day 1 08:00\nvitals hr 90');
     const bundle = toFhirBundle('note-00003', result, { redactProse: true, shiftDays: 0, noteKey: 'note-00003', bundleIdFromEntries: true, pseudonymous: true });
