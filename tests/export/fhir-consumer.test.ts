@@ -179,6 +179,25 @@ describe('every note of samples/ and tests/fixtures/, as a consumer reads it', (
     expect(references).toBeGreaterThan(20);
   });
 
+  it('every P/F ratio is derived from the PaO2 Observation of its own timepoint, and from an FiO2 Observation unless on room air', () => {
+    let ratios = 0;
+    for (const { path, result } of notes) {
+      const entries = toFhirBundle(path, result, noAnchor).entry ?? [];
+      const idOf = new Map(entries.map((e) => [e.fullUrl, e.resource.id]));
+      for (const { resource: o } of entries) {
+        if (!o.id.endsWith('-pf-ratio')) continue;
+        ratios++;
+        const tp = o.id.slice('obs-'.length, -'-pf-ratio'.length);
+        const from = (o.derivedFrom ?? []).map((d) => idOf.get(d.reference) ?? '');
+        expect(from, `${path} ${o.id}`).toContain(`obs-${tp}-pao2`);
+        const fio2 = from.filter((id) => /^obs-\d+-fio2(-[a-z]+)?$/.test(id));
+        expect(fio2.length, `${path} ${o.id}: ${from.join(', ')}`).toBeLessThanOrEqual(1);
+        if (fio2.length === 0) expect(o.valueQuantity!.value, `${path} ${o.id}: no FiO2 Observation, so FiO2 0.21`).toBeCloseTo(entries.find((e) => e.resource.id === `obs-${tp}-pao2`)!.resource.valueQuantity!.value / 0.21, 6);
+      }
+    }
+    expect(ratios).toBeGreaterThan(20);
+  });
+
   it('ids and fullUrls are the same on every run', () => {
     for (const { path, result } of notes.slice(0, 10)) {
       const again = checkNote(readFileSync(path, 'utf8'));
