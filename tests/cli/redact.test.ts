@@ -92,7 +92,8 @@ describe('export --redact names notes by their place in the run', () => {
       const here = await exported(dir, format, ['.', '-'], NOTES[0]);
       expect(here.out, format).toBe((await exported(renamed, format, ['.', '-'], NOTES[0])).out);
       expect(here.out, format).not.toContain('<stdin>');
-      if (format !== 'fhir') expect(here.out, format).toMatch(/^note-00004\b|"file":"note-00004"/m);
+      // CSV's file column, JSON Lines' file, the FHIR Bundle's identifier.
+      expect(here.out, format).toMatch(/^note-00004\b|"file":"note-00004"|"value": "note-00004"/m);
     }
   });
 
@@ -117,7 +118,7 @@ describe('export --redact with worker threads (built command)', () => {
       const single = runWith(['--format', format, '--jobs', '0']);
       expect(single.status, single.stderr).toBe(0);
       expect(single.stdout).not.toContain('Ormsby');
-      if (format !== 'fhir') expect(single.stdout).toContain('note-00012'); // FHIR ids are made from it
+      expect(single.stdout).toContain('note-00012'); // in FHIR, the Bundle's identifier (and ids are made from it)
       expect(runWith(['--format', format, '--jobs', '2']).stdout, format).toBe(single.stdout);
     }
     // Every note in a worker thread of its own (one at a time: slow, so one format).

@@ -133,9 +133,9 @@ Options:
   --jobs N                   worker threads (0 or 1: none); default one per core, up to 4, from 2000 notes
   --no-progress              no progress bar, even on a terminal
   --stdin-name PATH          the path of the note read from - (standard input), for editors and
-                             pipelines: its file column and FHIR ids are made from it as for a file
-                             of that path (so ids stay the same when the text is edited; with
-                             --redact, its place in the run is that of such a file), and
+                             pipelines: its file column, FHIR identifier and FHIR ids are made
+                             from it as for a file of that path (so ids stay the same when the text
+                             is edited; with --redact, its place in the run is that of such a file), and
                              pneumark.config.json is looked up from its folder (it need not exist);
                              when PATH is excluded by .pneuignore or --exclude, the note is not
                              read: one line on standard error says so, and the output is that of

@@ -77,7 +77,7 @@ export const exportRenderer: ExportRenderer = (path: string, result: NoteResult,
  * member written. Null as `bundleText` says.
  */
 function redactedBundleText(pseudonym: string, result: NoteResult, options: FhirOptions): string | null {
-  return bundleText(toFhirBundle(pseudonym, result, { ...options, noteKey: pseudonym, bundleIdFromEntries: true }));
+  return bundleText(toFhirBundle(pseudonym, result, { ...options, noteKey: pseudonym, bundleIdFromEntries: true, pseudonymous: true }));
 }
 
 /** Why a note's FHIR bundle is left out of the export. */

@@ -49,8 +49,21 @@
  *
  * Every Observation has `status: final` and a `valueQuantity` in the field's canonical unit
  * (gases in mmHg, whatever the note wrote), to 12 significant digits (precision.ts), with the UCUM code of the unit
- * registry (`system` http://unitsofmeasure.org). There is no subject, performer or identifier:
- * notes carry none.
+ * registry (`system` http://unitsofmeasure.org). Observations have no subject, performer or
+ * identifier: notes carry none.
+ *
+ * The Bundle: `type` collection (a set of resources to be read, not a transaction for a server to
+ * run), no `timestamp` (the time of the export would make every run's output differ; the same note
+ * gives the same bytes), and an `identifier` that says which note it came from, so a consumer can
+ * find a note's Bundle or join it with the rows of CSV and JSON Lines: `system`
+ * `urn:pneumark:note` (`NOTE_IDENTIFIER_SYSTEM`, a URN of our own, nothing to look up) and `value`
+ * the path as the command names the note, the text of the `file` column (relative to the working
+ * folder, forward slashes; `<stdin>`, or the `--stdin-name` path, for standard input). In a
+ * redacted export the value is the pseudonym (`note-00001`), also the `file` column there, in a
+ * system of its own (`urn:pneumark:redacted-note`, `pseudonymous`): a place in one run, which
+ * another run may give another note, and no part of the path. Text from the note or its path (the
+ * identifier, the labels in the notes) is written with each character a FHIR string may not hold
+ * escaped (`fhirString`: a no-break space, a control), which the R4 JSON schema would refuse.
  *
  * Categories (http://terminology.hl7.org/CodeSystem/observation-category), by the field's first
  * section: vitals → vital-signs; abg, vbg and labs → laboratory (and the P/F ratio, a blood-gas
@@ -128,6 +141,11 @@ export interface FhirOptions {
    * place of two exports, which must not share a Bundle id.
    */
   readonly bundleIdFromEntries?: boolean;
+  /**
+   * `path` is the note's pseudonym in a redacted export (`note-00001`), not a path: the Bundle's
+   * identifier gives it in a system of its own (`REDACTED_NOTE_IDENTIFIER_SYSTEM`).
+   */
+  readonly pseudonymous?: boolean;
 }
 
 export interface FhirCoding {
@@ -172,9 +190,16 @@ export interface FhirBundleEntry {
   readonly resource: FhirObservation;
 }
 
+export interface FhirIdentifier {
+  readonly system: string;
+  readonly value: string;
+}
+
 export interface FhirBundle {
   readonly resourceType: 'Bundle';
   readonly id: string;
+  /** Which note the Bundle came from: its path as the command names it, or its pseudonym (see the header comment). */
+  readonly identifier: FhirIdentifier;
   readonly type: 'collection';
   /** Left out when the note states nothing with a LOINC code (FHIR has no empty arrays). */
   readonly entry?: readonly FhirBundleEntry[];
@@ -184,6 +209,17 @@ const LOINC = 'http://loinc.org';
 const UCUM = 'http://unitsofmeasure.org';
 const CATEGORY_SYSTEM = 'http://terminology.hl7.org/CodeSystem/observation-category';
 const MINUTES_PER_DAY = 1440;
+
+/**
+ * The system of a Bundle's identifier when its value is the note's path, as the command names it
+ * (the `file` column of CSV and JSON Lines). A URN of Pneumark's own: nothing to look up.
+ */
+export const NOTE_IDENTIFIER_SYSTEM = 'urn:pneumark:note';
+/**
+ * The system of a Bundle's identifier when its value is the note's pseudonym in a redacted export
+ * (`note-00001`): a place in one run, which another run gives another note, never a path.
+ */
+export const REDACTED_NOTE_IDENTIFIER_SYSTEM = 'urn:pneumark:redacted-note';
 
 export type ObservationCategory = 'vital-signs' | 'laboratory' | 'therapy';
 
@@ -360,9 +396,50 @@ function relativeTime(tp: Timepoint, shiftDays: number): string | null {
   return tp.time.day !== null && Number.isFinite(tp.time.day) ? `day ${tp.time.day + shiftDays}` : null;
 }
 
+/**
+ * Whether a UTF-16 code unit is a character a FHIR string may not hold as it is: a control below
+ * U+0020 but tab, LF and CR (FHIR R4 datatypes, string: they SHOULD not be there, and XML cannot
+ * hold them), or a blank other than those and the space, which the pattern of string in the R4 JSON
+ * schema, `^[ \r\n\t\S]+$`, refuses (JSON Schema reads it as ECMAScript does, where `\S` leaves
+ * out U+00A0, U+1680, U+2000–U+200A, U+2028, U+2029, U+202F, U+205F, U+3000 and U+FEFF). Lone
+ * surrogates are dealt with apart (they are no characters at all).
+ */
+function notFhirChar(c: number): boolean {
+  if (c < 0x20) return c !== 0x09 && c !== 0x0a && c !== 0x0d;
+  if (c < 0xa0) return false;
+  return c === 0xa0 || c === 0x1680 || (c >= 0x2000 && c <= 0x200a) || c === 0x2028 || c === 0x2029 || c === 0x202f || c === 0x205f || c === 0x3000 || c === 0xfeff;
+}
+
+/**
+ * Text from the note or its path as a FHIR string: each character a FHIR string may not hold
+ * (`notFhirChar`), and each lone surrogate, written as the text output writes such characters
+ * (`\x07`, `\u{00A0}`: see `shownEscaped`); anything else as it is. Most text has none, and is
+ * returned as it is.
+ */
+export function fhirString(text: string): string {
+  let out: string | null = null;
+  let from = 0;
+  for (let i = 0; i < text.length; i++) {
+    const c = text.charCodeAt(i);
+    let bad = notFhirChar(c);
+    if (!bad && c >= 0xd800 && c <= 0xdfff) {
+      const pair = c <= 0xdbff && i + 1 < text.length && (text.charCodeAt(i + 1) & 0xfc00) === 0xdc00;
+      if (pair) {
+        i++;
+        continue;
+      }
+      bad = true;
+    }
+    if (!bad) continue;
+    out = (out ?? '') + text.slice(from, i) + (c < 0xa0 ? `\\x${c.toString(16).padStart(2, '0')}` : `\\u{${c.toString(16).toUpperCase().padStart(4, '0')}}`);
+    from = i + 1;
+  }
+  return out === null ? text : out + text.slice(from);
+}
+
 function timepointNote(tp: Timepoint, written: string | null, options: FhirOptions): string {
   const when = relativeTime(tp, options.shiftDays);
-  const label = options.redactProse || !written ? '' : `: ${written}`;
+  const label = options.redactProse || !written ? '' : `: ${fhirString(written)}`;
   return `Pneumark timepoint ${tp.index}${when ? ` (${when})` : ''}${label}`;
 }
 
@@ -529,6 +606,7 @@ export function toFhirBundle(path: string, result: NoteResult, options: FhirOpti
   return {
     resourceType: 'Bundle',
     id: `pneumark-${stableHex128(options.bundleIdFromEntries ? `${noteKey}\u0000${entries.map((e) => e.fullUrl).join('\u0000')}` : noteKey).slice(0, 16)}`,
+    identifier: { system: options.pseudonymous ? REDACTED_NOTE_IDENTIFIER_SYSTEM : NOTE_IDENTIFIER_SYSTEM, value: fhirString(path) },
     type: 'collection',
     ...(entries.length ? { entry: entries } : {}),
   };

@@ -6,7 +6,7 @@
  * - columns.ts  the column model of the tabular exports: one row per timepoint (`timepointRows`)
  * - csv.ts      RFC 4180 CSV of those rows (header once, then records, so notes can be streamed)
  * - jsonl.ts    JSON Lines: one object per timepoint, the same keys plus the findings
- * - fhir.ts     a FHIR R4 collection Bundle of LOINC-coded Observations per note
+ * - fhir.ts     a FHIR R4 collection Bundle of LOINC-coded Observations per note, named by its path (`Bundle.identifier`)
  * - sarif.ts    a SARIF 2.1.0 log of the findings of many notes
  * - precision.ts the one rule for the numbers they all write (12 significant digits)
  * - pseudonym.ts what names a note in a redacted export, in place of its path (`note-00001`)
@@ -21,12 +21,16 @@ export { csvCells, csvField, csvHeader, csvRecord, spreadsheetText, toCsv, type 
 export { jsonlRecords, toJsonl, type JsonlFinding, type JsonlRecord } from './jsonl';
 export {
   anchorProblem,
+  fhirString,
+  NOTE_IDENTIFIER_SYSTEM,
   observationCategory,
+  REDACTED_NOTE_IDENTIFIER_SYSTEM,
   toFhirBundle,
   type FhirBundle,
   type FhirBundleEntry,
   type FhirCodeableConcept,
   type FhirCoding,
+  type FhirIdentifier,
   type FhirObservation,
   type FhirObservationComponent,
   type FhirOptions,
