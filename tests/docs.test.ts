@@ -355,6 +355,9 @@ const SPEC_LINES: Readonly<Record<string, readonly string[] | { readonly on: str
   'vent 450 mL': ['PN105'],
   'flow 4 L/min': [],
   'vent 5 cmH2O': ['PN105', 'PN201'],
+  // On a vitals line L/min is the cardiac output's alone, but more likely an oxygen flow: the oxygen line offered first.
+  'vitals 4 L/min': ['PN105'],
+  'oxygen flow 4 L/min': [],
   'hr 88 120': ['PN105'],
   'mode VC.': ['PN105'],
   'hr 80. rr 18': ['PN202'],

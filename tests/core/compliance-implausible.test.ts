@@ -10,7 +10,7 @@ import { checkNote } from '../../server/src/core';
 const pn407 = (text: string) => checkNote(text).findings.filter((f) => f.code === 'PN407');
 const codes = (text: string) => checkNote(text).findings.map((f) => f.code).filter((c) => /^PN30[34]$|^PN407$/.test(c));
 
-describe('Static compliance no respiratory system gives (PN407)', () => {
+describe('Compliance no respiratory system gives (PN407)', () => {
   it('fires above 200 mL/cmH2O, on the plateau, with the numbers it rests on', () => {
     // 450 ÷ (12 − 10) = 225 mL/cmH2O.
     const f = pn407('@ 08:00\nvent mode VC, vt 450 mL, rate 14, peep 10, plateau 12');
@@ -54,5 +54,57 @@ describe('Static compliance no respiratory system gives (PN407)', () => {
   it('works in cmH2O whatever the unit written', () => {
     // 12 mbar = 12.24 cmH2O (1 mbar = 100 Pa, 1 cmH2O = 98.0665 Pa): 450 ÷ 2.24 = 201 mL/cmH2O.
     expect(pn407('@ 08:00\nvent mode VC, vt 0.45 L, rate 14, peep 10, plateau 12 mbar')).toHaveLength(1);
+  });
+
+  // Under volume control (VC, SIMV, SIMV-VC: fields/modes.ts) the set volume is driven in by the
+  // ventilator, so the airway pressure must rise above the PEEP; the peak includes the plateau
+  // (peak = plateau + resistive pressure), so the dynamic compliance VT / (Ppeak − PEEP) is never
+  // above the static one and a dynamic one above the ceiling means a static one above it too
+  // (respiratory mechanics, common practice, no source).
+  const peakIssue = (text: string) => pn407(text).map((f) => `${f.range.start.line}:${f.range.start.character} ${f.message}`);
+
+  it('fires on the peak where it equals the PEEP with a set tidal volume under volume control, and no plateau is written', () => {
+    expect(peakIssue('@ 08:00\nvent mode VC, vt 450 mL, rate 14, peep 10, peak 10')).toEqual([
+      '1:43 Peak pressure 10 cmH2O equals the PEEP with a tidal volume of 450 mL set under VC: the ventilator drove the volume in without raising the pressure, which no respiratory system allows; consistent with a transcription error in the peak pressure or the PEEP.',
+    ]);
+    // The dynamic compliance has no value there (the pressure rise is 0).
+    const r = checkNote('@ 08:00\nvent mode VC, vt 450 mL, rate 14, peep 10, peak 10');
+    expect(r.analysis.derivation(0).derived.find((d) => d.id === 'compliance_dynamic')?.value).toBeUndefined();
+    // SIMV and SIMV-VC are volume-targeted too; the settings may be carried from an earlier timepoint.
+    expect(pn407('@ 08:00\nvent mode SIMV-VC, vt 450 mL, rate 14, peep 10, peak 10')).toHaveLength(1);
+    expect(pn407('@ 08:00\nvent mode SIMV, vt 450 mL, rate 14, peep 10\n@ 09:00\nvent peak 10')).toHaveLength(1);
+  });
+
+  it('says nothing of the peak under other modes, with no mode, or with no volume', () => {
+    // Under pressure support or pressure control a breath the patient draws in may leave the peak at the PEEP.
+    expect(pn407('@ 08:00\nvent mode PS, ps 0, peep 10, vt 450 mL, peak 10')).toEqual([]);
+    expect(pn407('@ 08:00\nvent mode PC, pinsp 12, rate 14, peep 10, vt 450 mL, peak 10')).toEqual([]);
+    expect(pn407('@ 08:00\nvent mode PRVC, vt 450 mL, rate 14, peep 10, peak 10')).toEqual([]);
+    expect(pn407('@ 08:00\nvent vt 450 mL, rate 14, peep 10, peak 10')).toEqual([]);
+    expect(pn407('@ 08:00\nvent mode VC, vt 0 mL, rate 14, peep 10, peak 10')).toEqual([]);
+    // A peak below the PEEP is PN314's.
+    expect(codes('@ 08:00\nvent mode VC, vt 450 mL, rate 14, peep 10, peak 9')).toEqual([]);
+    expect(checkNote('@ 08:00\nvent mode VC, vt 450 mL, rate 14, peep 10, peak 9').findings.map((f) => f.code)).toEqual(['PN314']);
+  });
+
+  it('leaves the peak alone where a plateau is written: the plateau\'s report stands, and no second one', () => {
+    expect(peakIssue('@ 08:00\nvent mode VC, vt 450 mL, rate 14, peep 10, plateau 10, peak 10').map((m) => m.slice(0, 28))).toEqual(['1:43 Plateau pressure 10 cmH']);
+    expect(codes('@ 08:00\nvent mode VC, vt 450 mL, rate 14, peep 10, plateau 25, peak 10')).toEqual(['PN304']);
+    expect(pn407('@ 08:00\nvent mode VC, vt 450 mL, rate 14, peep 10, plateau 11, peak 12')).toHaveLength(1);
+  });
+
+  it('fires on the peak where the dynamic compliance is above 200 mL/cmH2O under volume control, and no plateau is written', () => {
+    // 450 ÷ (12 − 10) = 225 mL/cmH2O.
+    expect(peakIssue('@ 08:00\nvent mode VC, vt 450 mL, rate 14, peep 10, peak 12')).toEqual([
+      '1:43 Dynamic compliance 225 mL/cmH2O (450 ÷ (12 − 10)) is above 200 mL/cmH2O, more than the lungs and chest wall of a healthy adult give together, and a static compliance is higher still: consistent with a transcription error in the peak pressure, the PEEP or the tidal volume.',
+    ]);
+    // Shown all the same: the check reports, it does not withhold.
+    const r = checkNote('@ 08:00\nvent mode VC, vt 450 mL, rate 14, peep 10, peak 12');
+    expect(r.analysis.derivation(0).derived.find((d) => d.id === 'compliance_dynamic')?.value).toBe(225);
+    // 400 ÷ 2 = 200: at the ceiling, not above it; 450 ÷ (25 − 10) = 30, ordinary.
+    expect(pn407('@ 08:00\nvent mode VC, vt 400 mL, rate 14, peep 10, peak 12')).toEqual([]);
+    expect(pn407('@ 08:00\nvent mode VC, vt 450 mL, rate 14, peep 10, peak 25')).toEqual([]);
+    // Not under pressure support, where the patient's own effort moves the volume.
+    expect(pn407('@ 08:00\nvent mode PS, ps 2, peep 10, vt 450 mL, peak 12')).toEqual([]);
   });
 });

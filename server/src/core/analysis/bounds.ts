@@ -72,13 +72,52 @@ const CHILD_HEIGHT = childSizeBounds('height');
 const CHILD_WEIGHT = childSizeBounds('weight');
 
 /**
+ * The lowest usual inspiratory flow of a patient under ADULT_FROM_YEARS, L/min: half the 4 L/min at
+ * the bottom of the 4–10 L/min an infant on a ventilator is usually given (common practice, from
+ * memory), as the tidal volume's usual minimum is half the bottom of a protocol's range; an adult's
+ * usual minimum (10 L/min in the field registry) is below any infant's flow.
+ */
+export const CHILD_INSP_FLOW_MIN_L_PER_MIN = 2;
+
+/** A child's inspiratory flow: from CHILD_INSP_FLOW_MIN_L_PER_MIN to the adult usual maximum. */
+const CHILD_INSP_FLOW: Bounds = Object.freeze({ min: CHILD_INSP_FLOW_MIN_L_PER_MIN, max: fieldById('insp_flow')?.soft?.max });
+
+/**
+ * A child's window of a field whose usual minimum is an adult's (null for the others): for a body
+ * size `childSizeBounds`, for the inspiratory flow CHILD_INSP_FLOW. It is both the doubt window of a
+ * bare number and where a number doubted would be ordinary in another unit.
+ */
+function childWindow(field: FieldDef): Bounds | null {
+  return field.id === 'height' ? CHILD_HEIGHT : field.id === 'weight' ? CHILD_WEIGHT : field.id === 'insp_flow' ? CHILD_INSP_FLOW : null;
+}
+
+/**
+ * The usual bounds of a field for a patient under ADULT_FROM_YEARS, from `usual`, the bounds an
+ * adult's value is read against (PN302): a body size keeps only its usual maximum (`isBodySize`),
+ * the inspiratory flow a child's minimum (CHILD_INSP_FLOW_MIN_L_PER_MIN), and a tidal volume read
+ * against no body size (`bodyKg` null: neither a weight nor a predicted body weight in force) has no
+ * usual minimum, as a child's size runs from a preterm newborn's to an adult's (common practice,
+ * no source); with a body size its minimum is per kg for a child as for an adult (`softBoundsAt`).
+ */
+export function childUsualBounds(field: FieldDef, usual: Bounds | undefined, bodyKg: number | null): Bounds | undefined {
+  if (usual === undefined) return usual;
+  if (field.id === 'insp_flow') return usual.max === undefined ? { min: CHILD_INSP_FLOW_MIN_L_PER_MIN } : { min: CHILD_INSP_FLOW_MIN_L_PER_MIN, max: usual.max };
+  if (isBodySize(field) || (field.id === 'vt' && (bodyKg === null || !(bodyKg > 0)))) {
+    return usual.min === undefined ? usual : usual.max === undefined ? {} : { max: usual.max };
+  }
+  return usual;
+}
+
+/**
  * Where a bare number is read in the unit in force without doubt (see `FieldDef.doubt`): the
  * field's doubt window, else its soft bounds, with the same waiver at low barometric pressure; for
  * a body size of a patient under ADULT_FROM_YEARS (`ageYears`, the age in force where the number
- * is read; null: none), a child's window (`childSizeBounds`).
+ * is read; null: none), a child's window (`childSizeBounds`); for the inspiratory flow of such a
+ * patient, a child's flows (`childWindow`).
  */
 export function doubtBoundsAt(field: FieldDef, barometricMmhg: number | null, ageYears: number | null = null): Bounds | undefined {
-  if (isChildAge(ageYears) && isBodySize(field)) return field.id === 'height' ? CHILD_HEIGHT : CHILD_WEIGHT;
+  const child = isChildAge(ageYears) ? childWindow(field) : null;
+  if (child !== null) return child;
   const doubt = field.doubt;
   if (!doubt) return softBoundsAt(field, barometricMmhg);
   if (barometricMmhg !== null && barometricMmhg < LOW_PRESSURE_WAIVER_MMHG && WAIVED_AT_ALTITUDE.has(field.id)) {
@@ -89,11 +128,12 @@ export function doubtBoundsAt(field: FieldDef, barometricMmhg: number | null, ag
 
 /**
  * Where a bare number doubted in the unit in force would be ordinary in another unit (PN204): the
- * field's soft bounds at the barometric pressure in force, or for a body size of a patient under
- * ADULT_FROM_YEARS a child's size (`childSizeBounds`).
+ * field's soft bounds at the barometric pressure in force, or for a body size or the inspiratory flow
+ * of a patient under ADULT_FROM_YEARS a child's window (`childWindow`).
  */
 export function ordinaryBoundsAt(field: FieldDef, barometricMmhg: number | null, ageYears: number | null): Bounds | undefined {
-  if (isChildAge(ageYears) && isBodySize(field)) return field.id === 'height' ? CHILD_HEIGHT : CHILD_WEIGHT;
+  const child = isChildAge(ageYears) ? childWindow(field) : null;
+  if (child !== null) return child;
   return softBoundsAt(field, barometricMmhg);
 }
 

@@ -3,6 +3,13 @@
  * end-expiratory pressure to the plateau, or with a rise so small that the quotient is beyond what
  * the lungs and chest wall of a healthy adult give together. Either is consistent with a
  * transcription error in the plateau, the PEEP (EPAP, CPAP level) or the tidal volume.
+ *
+ * Where no plateau is written, the peak tells the same under volume control (VC, SIMV, SIMV-VC:
+ * fields/modes.ts), where the ventilator drives the set volume in: a peak equal to the PEEP is a
+ * breath with no rise in pressure, and a dynamic compliance VT / (Ppeak − PEEP) above the ceiling
+ * means a static one above it too, as the peak includes the plateau (peak = plateau + resistive
+ * pressure; respiratory mechanics, common practice, no source). Not under other modes, where the
+ * patient's own effort may move a volume with the airway pressure at the PEEP.
  */
 import { COMPLIANCE_CEILING_ML_PER_CMH2O, SOURCES } from '../physiology';
 import { toRange } from '../syntax/tree';
@@ -11,12 +18,13 @@ import { derivedValueOf } from '../derive/registry';
 import type { DerivedValue } from '../derive/model';
 import { defineCheck, type TimepointContext } from './check';
 import { inHfov } from './oscillation';
+import { modeFamily } from '../fields/modes';
 
 const CEILING = COMPLIANCE_CEILING_ML_PER_CMH2O;
 
 /** The input of a derived value that is the end-expiratory pressure: PEEP, EPAP or CPAP as its line names it. */
 function endExpiratoryName(d: DerivedValue): string {
-  return d.inputs.find((t) => t.name !== 'Pplat' && t.name !== 'VT')?.name ?? 'PEEP';
+  return d.inputs.find((t) => t.name !== 'Pplat' && t.name !== 'Ppeak' && t.name !== 'VT')?.name ?? 'PEEP';
 }
 
 /** A formula with its numbers, without its result: `450 ÷ (12 − 10)` of `450 ÷ (12 − 10) = 225 mL/cmH2O`. */
@@ -31,21 +39,55 @@ const aboveCeilingMessage = (c: DerivedValue): string =>
 const noRiseMessage = (vt: number, dp: DerivedValue): string =>
   `Plateau pressure ${formatNumber(dp.inputs[0]?.value ?? NaN, 0)} cmH2O equals the ${endExpiratoryName(dp)} with a tidal volume of ${formatNumber(vt, 0)} mL: a breath delivered with no rise in pressure, which no respiratory system allows; consistent with a transcription error in the plateau or the ${endExpiratoryName(dp)}.`;
 
+const dynamicAboveCeilingMessage = (c: DerivedValue): string =>
+  `Dynamic compliance ${formatAgainst(c.value, 0, CEILING)} mL/cmH2O (${withoutResult(c.substituted)}) is above ${CEILING} mL/cmH2O, more than the lungs and chest wall of a healthy adult give together, and a static compliance is higher still: consistent with a transcription error in the peak pressure, the ${endExpiratoryName(c)} or the tidal volume.`;
+
+const noRiseAtPeakMessage = (peak: number, vt: number, mode: string): string =>
+  `Peak pressure ${formatNumber(peak, 0)} cmH2O equals the PEEP with a tidal volume of ${formatNumber(vt, 0)} mL set under ${mode}: the ventilator drove the volume in without raising the pressure, which no respiratory system allows; consistent with a transcription error in the peak pressure or the PEEP.`;
+
+/**
+ * The peak written at a timepoint with no plateau written, under volume control: a dynamic
+ * compliance above the ceiling, or none because the peak equals the PEEP with a set tidal volume
+ * above 0 (a peak below the PEEP is PN314's).
+ */
+function reportPeak(ctx: TimepointContext): void {
+  const values = ctx.timepoint.values;
+  const mode = values.wordOf('mode');
+  if (mode === null || modeFamily(mode) !== 'volume') return;
+  const peak = values.get('peak');
+  if (!peak || peak.origin.kind !== 'here' || !peak.stated.usable || peak.stated.value === null) return;
+  const range = toRange(peak.stated.line, peak.stated.item.span);
+  const compliance = derivedValueOf(ctx.derivation, 'compliance_dynamic');
+  if (compliance !== null) {
+    if (compliance.value > CEILING + 1e-9) ctx.report({ range, message: dynamicAboveCeilingMessage(compliance) });
+    return;
+  }
+  const vt = values.get('vt');
+  const peep = values.get('peep');
+  if (!vt?.stated.usable || vt.stated.value === null || !(vt.stated.value > 0)) return;
+  if (!peep?.stated.usable || peep.stated.value !== peak.stated.value) return;
+  ctx.report({ range, message: noRiseAtPeakMessage(peak.stated.value, vt.stated.value, mode) });
+}
+
 export const complianceImplausible = defineCheck({
   code: 'PN407',
   alias: 'compliance-implausible',
-  title: 'Static compliance no respiratory system gives',
+  title: 'Compliance no respiratory system gives',
   severity: 'warning',
   tags: ['physiology'],
   doc: {
-    fires: `A plateau pressure written at the timepoint gives, with the tidal volume and the end-expiratory pressure in force (PEEP; EPAP or the CPAP level on non-invasive support), a static compliance above ${CEILING} mL/cmH2O, or none at all because the plateau equals the end-expiratory pressure while a tidal volume above 0 was delivered. A healthy adult's lungs and chest wall together give about 100 mL/cmH2O, and a passive breath cannot move a volume without a rise in pressure, so either is more likely a number written wrong (a plateau of 11 for 21, a PEEP copied into the plateau) than a measurement. Not in HFOV, where no conventional breath has a plateau. The compliance is still shown: the check reports, it does not withhold.`,
+    fires: `A plateau pressure written at the timepoint gives, with the tidal volume and the end-expiratory pressure in force (PEEP; EPAP or the CPAP level on non-invasive support), a static compliance above ${CEILING} mL/cmH2O, or none at all because the plateau equals the end-expiratory pressure while a tidal volume above 0 was delivered. A healthy adult's lungs and chest wall together give about 100 mL/cmH2O, and a passive breath cannot move a volume without a rise in pressure, so either is more likely a number written wrong (a plateau of 11 for 21, a PEEP copied into the plateau) than a measurement. Where no plateau is written, under volume control (VC, SIMV, SIMV-VC), where the ventilator drives the set volume in, the peak pressure is looked at instead: a dynamic compliance (VT ÷ (peak − PEEP)) above ${CEILING} mL/cmH2O, which means a static one above it too since the peak includes the plateau, or a peak equal to the PEEP with a set tidal volume above 0, a breath with no rise in pressure; reported on the peak. Not under other modes, where the patient's own effort may move a volume with the airway pressure at the PEEP, and not where a plateau is written (its report stands, and no second one). Not in HFOV, where no conventional breath has a plateau. The compliance is still shown: the check reports, it does not withhold.`,
     example: '@ 08:00\nvent mode VC, vt 450 mL, peep 10, plateau 11',
-    fix: 'Check the plateau (a true inspiratory hold), the PEEP and the tidal volume against the ventilator.',
+    fix: 'Check the plateau (a true inspiratory hold) or the peak, the PEEP and the tidal volume against the ventilator.',
   },
   source: SOURCES['compliance-ceiling'],
   runTimepoint(ctx: TimepointContext) {
     const values = ctx.timepoint.values;
-    if (values.originOf('plateau') !== 'here' || inHfov(ctx)) return;
+    // Most timepoints state neither: asked without building the values.
+    const plateauHere = values.originOf('plateau') === 'here';
+    if ((!plateauHere && values.originOf('peak') !== 'here') || inHfov(ctx)) return;
+    // A plateau written here is the one looked at: its report stands, and the peak gives no second one.
+    if (!plateauHere) return reportPeak(ctx);
     const plateau = values.get('plateau');
     if (!plateau || plateau.origin.kind !== 'here' || !plateau.stated.usable) return;
     const range = toRange(plateau.stated.line, plateau.stated.item.span);

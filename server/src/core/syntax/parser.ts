@@ -1788,6 +1788,36 @@ function keyOfUnitIssue(source: string, start: number, end: number, key: string,
   };
 }
 
+/** The key of the cardiac output, the one key of a vitals line in L/min, and the key of the oxygen flow. */
+const CARDIAC_OUTPUT_KEY = FIELDS.find((f) => f.id === 'cardiac_output')!.aliases[0]!;
+const OXYGEN_FLOW_KEY = FIELDS.find((f) => f.id === 'o2_flow')!.aliases[0]!;
+
+/**
+ * A number in L/min with no key on a vitals line (`vitals 4 L/min`): the only key there that takes
+ * it is the cardiac output's, yet such a number is far more often an oxygen flow written in the
+ * wrong section (common practice, no source). Said so, with the oxygen line offered first where
+ * the number is all the line holds (`sectionWord`, the span of the line's section word; null
+ * otherwise), and `co` second, neither preferred: a guess either way. Where the line gives a
+ * cardiac output already, `co` is not offered.
+ */
+function flowOnVitalsIssue(source: string, start: number, end: number, alreadyRead: boolean, sectionWord: Span | null): SyntaxIssue {
+  const written = source.slice(start, end);
+  const oxygenLine = `oxygen ${OXYGEN_FLOW_KEY} ${written}`;
+  const fixes: LineFix[] = [];
+  if (sectionWord !== null) {
+    fixes.push({ title: `Make this an oxygen line: \`${oxygenLine}\``, edits: [{ span: sectionWord, newText: 'oxygen' }, { span: { start, end: start }, newText: `${OXYGEN_FLOW_KEY} ` }] });
+  }
+  if (!alreadyRead) fixes.push({ title: `Write \`${CARDIAC_OUTPUT_KEY} ${written}\``, edits: [{ span: { start, end: start }, newText: `${CARDIAC_OUTPUT_KEY} ` }] });
+  return {
+    check: 'stray-text',
+    span: { start, end },
+    message: alreadyRead
+      ? `\`${written}\` has no key and is not read; a flow in L/min on a vitals line is more likely an oxygen flow written in the wrong section: write it on an oxygen line, \`${oxygenLine}\` (the line gives its cardiac output already).`
+      : `\`${written}\` has no key; a flow in L/min on a vitals line is more likely an oxygen flow written in the wrong section than a cardiac output: write it on an oxygen line, \`${oxygenLine}\`, or as \`${CARDIAC_OUTPUT_KEY} ${written}\` if it is a cardiac output.`,
+    fixes,
+  };
+}
+
 /** Whether one of the first `count` items read on the line holds the key `key` (canonical). */
 function keyRead(items: readonly (Item | undefined)[], count: number, key: string): boolean {
   for (let k = 0; k < count; k++) if (items[k]!.keyName === key) return true;
@@ -1936,7 +1966,12 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
         const unit = unitAfter(gluedUnit(chunk, ownedLength), chunks, i + 1, section, source);
         const owner = unit === null ? null : onlyKeyTaking(section, unit.text);
         if (owner !== null) {
-          issues.push(keyOfUnitIssue(source, chunk.start, unit!.end, owner, keyRead(items, count, owner)));
+          const alreadyRead = keyRead(items, count, owner);
+          // `vitals 4 L/min`: more likely an oxygen flow than a cardiac output (the oxygen line is
+          // offered where the number and its unit are all the line holds).
+          issues.push(section === 'vitals' && owner === CARDIAC_OUTPUT_KEY
+            ? flowOnVitalsIssue(source, chunk.start, unit!.end, alreadyRead, i === start && i + 1 + UNIT_CHUNKS === n ? chunks[0]!.span : null)
+            : keyOfUnitIssue(source, chunk.start, unit!.end, owner, alreadyRead));
           i += 1 + UNIT_CHUNKS;
           continue;
         }
