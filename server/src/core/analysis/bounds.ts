@@ -71,14 +71,55 @@ function childSizeBounds(id: string): Bounds {
 const CHILD_HEIGHT = childSizeBounds('height');
 const CHILD_WEIGHT = childSizeBounds('weight');
 
+/** Under this age (years) a height is an infant's length, from INFANT_LENGTH_MIN_CM. */
+export const INFANT_UNTIL_YEARS = 1;
+
+/**
+ * The shortest infant after birth, cm: a newborn of 24 weeks of gestation is about 30 cm long (from
+ * memory), a term newborn about 50 cm (common practice, no source). An infant's length below it is
+ * no length at all: a bare `height 10` of an 8-month-old is not offered inches (25 cm), and a
+ * height written in cm below it is unusual (PN302).
+ */
+export const INFANT_LENGTH_MIN_CM = 30;
+
+const INFANT_HEIGHT: Bounds = Object.freeze({ min: INFANT_LENGTH_MIN_CM, max: CHILD_HEIGHT.max });
+
+/**
+ * The size window of a body size of a patient of `ageYears` (null: none in force): under
+ * ADULT_FROM_YEARS a child's (`childSizeBounds`), and for a height under INFANT_UNTIL_YEARS an
+ * infant's, from INFANT_LENGTH_MIN_CM; null for an adult, for no age, and for any other field. It
+ * is both the doubt window of a bare number (`doubtBoundsAt`) and where another unit would make the
+ * number ordinary (`ordinaryBoundsAt`).
+ */
+export function childSizeAt(field: FieldDef, ageYears: number | null): Bounds | null {
+  if (!isChildAge(ageYears) || !isBodySize(field)) return null;
+  if (field.id === 'weight') return CHILD_WEIGHT;
+  return ageYears! < INFANT_UNTIL_YEARS ? INFANT_HEIGHT : CHILD_HEIGHT;
+}
+
+/**
+ * The usual bounds of a body size at an age (PN302), from `usual`, the field's own: a child's have no
+ * usual minimum (an adult's, 120 cm and 25 kg, is none of a child's; common practice, no source),
+ * but an infant's length starts at INFANT_LENGTH_MIN_CM; the usual maximum stays. `usual` itself
+ * for an adult, for no age, and for any other field.
+ */
+export function usualSizeAt(field: FieldDef, usual: Bounds | undefined, ageYears: number | null): Bounds | undefined {
+  const child = childSizeAt(field, ageYears);
+  if (child === null) return usual;
+  const min = child === INFANT_HEIGHT ? INFANT_LENGTH_MIN_CM : undefined;
+  if (usual?.max === undefined) return min === undefined ? {} : { min };
+  return min === undefined ? { max: usual.max } : { min, max: usual.max };
+}
+
 /**
  * Where a bare number is read in the unit in force without doubt (see `FieldDef.doubt`): the
  * field's doubt window, else its soft bounds, with the same waiver at low barometric pressure; for
  * a body size of a patient under ADULT_FROM_YEARS (`ageYears`, the age in force where the number
- * is read; null: none), a child's window (`childSizeBounds`).
+ * is read; null: none), a child's window (`childSizeAt`).
  */
 export function doubtBoundsAt(field: FieldDef, barometricMmhg: number | null, ageYears: number | null = null): Bounds | undefined {
-  if (isChildAge(ageYears) && isBodySize(field)) return field.id === 'height' ? CHILD_HEIGHT : CHILD_WEIGHT;
+  const child = childSizeAt(field, ageYears);
+  if (child !== null) return child;
   const doubt = field.doubt;
   if (!doubt) return softBoundsAt(field, barometricMmhg);
   if (barometricMmhg !== null && barometricMmhg < LOW_PRESSURE_WAIVER_MMHG && WAIVED_AT_ALTITUDE.has(field.id)) {
@@ -90,11 +131,10 @@ export function doubtBoundsAt(field: FieldDef, barometricMmhg: number | null, ag
 /**
  * Where a bare number doubted in the unit in force would be ordinary in another unit (PN204): the
  * field's soft bounds at the barometric pressure in force, or for a body size of a patient under
- * ADULT_FROM_YEARS a child's size (`childSizeBounds`).
+ * ADULT_FROM_YEARS a child's size (`childSizeAt`: an infant's length from INFANT_LENGTH_MIN_CM).
  */
 export function ordinaryBoundsAt(field: FieldDef, barometricMmhg: number | null, ageYears: number | null): Bounds | undefined {
-  if (isChildAge(ageYears) && isBodySize(field)) return field.id === 'height' ? CHILD_HEIGHT : CHILD_WEIGHT;
-  return softBoundsAt(field, barometricMmhg);
+  return childSizeAt(field, ageYears) ?? softBoundsAt(field, barometricMmhg);
 }
 
 export function within(value: number, bounds: Bounds | undefined): boolean {
@@ -129,7 +169,8 @@ export function withinAsWritten(value: number, bounds: Bounds | undefined, field
 }
 
 /**
- * The field's units, other than `except`, in which the number as written (`written`) lies within
+ * The field's units, other than `except` and those never offered (`UnitDef.offered`: an age's weeks
+ * and days), in which the number as written (`written`) lies within
  * every one of `bounds` once read into the field's canonical unit: where a number written or
  * read in one unit would be ordinary (PN204 for a bare number, PN301's fix for a written unit).
  */
@@ -140,7 +181,7 @@ export function unitsWithin(field: FieldDef, written: number, except: string | n
   for (const id of field.units ?? []) {
     if (id === except) continue;
     const unit = unitById(id);
-    const value = unit ? convert(written, unit, canonical) : null;
+    const value = unit && unit.offered ? convert(written, unit, canonical) : null;
     if (unit && value !== null && bounds.every((b) => within(value, b))) out.push(unit);
   }
   return out;

@@ -3,7 +3,7 @@
  * bounds (field registry). Saturations above 100 % and FiO2 outside 0.21–1.0 have checks
  * of their own and are left to them.
  */
-import { isBodySize, isChildAge, softBoundsAt, unitsWithin, within, withinAsWritten } from '../analysis/bounds';
+import { isBodySize, softBoundsAt, usualSizeAt, unitsWithin, within, withinAsWritten } from '../analysis/bounds';
 import type { StatedValue } from '../analysis/model';
 import { PER_KG_PBW } from '../analysis/per-kg-volume';
 import type { Bounds, FieldDef } from '../fields/registry';
@@ -55,23 +55,20 @@ function usualBounds(field: FieldDef, barometricMmhg: number | null, at: Timepoi
 }
 
 /**
- * Whether the age in force (the header's at note scope) is under ADULT_FROM_YEARS: then the usual
- * minimum of height and weight, an adult's (120 cm, 25 kg), is not applied (`isBodySize`; common
- * practice, no source); the usual maximum still is. The header's age is its last (a later one
- * replaces an earlier, used or not, as at a timepoint), as the header's lines were read with it.
+ * The age in force (years; the header's at note scope; null: none): under ADULT_FROM_YEARS the
+ * usual minimum of height and weight, an adult's (120 cm, 25 kg), is not applied, and under a year
+ * a height's is an infant's (`usualSizeAt`); the usual maximum still is. The header's age is its
+ * last (a later one replaces an earlier, used or not, as at a timepoint), as the header's lines were
+ * read with it.
  */
-function isChildAt(ctx: CheckContext, at: TimepointContext | null): boolean {
-  if (at !== null) return isChildAge(at.timepoint.values.numberOf('age'));
+function ageAt(ctx: CheckContext, at: TimepointContext | null): number | null {
+  if (at !== null) return at.timepoint.values.numberOf('age');
   const header = ctx.analysis.timeline.header;
   for (let i = header.length - 1; i >= 0; i--) {
     const s = header[i]!;
-    if (s.field.id === 'age') return isChildAge(s.usable ? s.value : null);
+    if (s.field.id === 'age') return s.usable ? s.value : null;
   }
-  return false;
-}
-
-function withoutMinimum(bounds: Bounds | undefined): Bounds | undefined {
-  return bounds?.min === undefined ? bounds : bounds.max === undefined ? {} : { max: bounds.max };
+  return null;
 }
 
 /**
@@ -266,7 +263,7 @@ export const unusualValue = defineCheck({
   severity: 'warning',
   tags: ['plausibility'],
   doc: {
-    fires: 'A value is possible but outside the usual (soft) bounds of its field: worth a second look at the unit or the transcription. Low arterial gas pressures are not flagged where the barometric pressure is below 500 mmHg, since they are real at extreme altitude. A tidal volume is usual from 2 mL per kg of body size (the smaller of the weight and the predicted body weight in force), or from 50 mL where the note gives neither; in HFOV, which moves 1–3 mL/kg a breath, it has no usual minimum. In HFOV the set rate is the oscillation frequency, usual from 3 to 15 Hz (180–900 /min) rather than at most 60 /min: a number written bare or in /min that is such a frequency in Hz (`rate 5`) is reported with `Hz` offered; a rate written in Hz in another mode is reported where it is above 60 /min (1 Hz), with its usual maximum in both units and a word that Hz is usual in HFOV, and /min offered where the number is a whole one usual in /min (`rate 14 Hz` in VC; not `rate 1.004 Hz`, a frequency, as rates of breaths are set in whole breaths a minute). A number written in another unit than its field\'s own is compared at the precision written: `pco2 20.0 kPa` is 150.01 mmHg, yet to a tenth of a kPa it is the usual maximum of 150 mmHg, and is not reported. A saturation written as a fraction with no unit (`spo2 0.94`) is reported with the percentage offered, and is not used until it is rewritten. The usual minimum of height and weight is an adult\'s: it is not applied to a patient under 18 years (the age in force), whose usual maximum still is.',
+    fires: 'A value is possible but outside the usual (soft) bounds of its field: worth a second look at the unit or the transcription. Low arterial gas pressures are not flagged where the barometric pressure is below 500 mmHg, since they are real at extreme altitude. A tidal volume is usual from 2 mL per kg of body size (the smaller of the weight and the predicted body weight in force), or from 50 mL where the note gives neither; in HFOV, which moves 1–3 mL/kg a breath, it has no usual minimum. In HFOV the set rate is the oscillation frequency, usual from 3 to 15 Hz (180–900 /min) rather than at most 60 /min: a number written bare or in /min that is such a frequency in Hz (`rate 5`) is reported with `Hz` offered; a rate written in Hz in another mode is reported where it is above 60 /min (1 Hz), with its usual maximum in both units and a word that Hz is usual in HFOV, and /min offered where the number is a whole one usual in /min (`rate 14 Hz` in VC; not `rate 1.004 Hz`, a frequency, as rates of breaths are set in whole breaths a minute). A number written in another unit than its field\'s own is compared at the precision written: `pco2 20.0 kPa` is 150.01 mmHg, yet to a tenth of a kPa it is the usual maximum of 150 mmHg, and is not reported. A saturation written as a fraction with no unit (`spo2 0.94`) is reported with the percentage offered, and is not used until it is rewritten. The usual minimum of height and weight is an adult\'s: it is not applied to a patient under 18 years (the age in force), whose usual maximum still is; under a year a length is usual from 30 cm, the shortest newborn\'s (from memory).',
     example: 'vitals hr 236',
     fix: 'Confirm the value; if it is right, the warning can stay (or the check can be switched off in settings). Where the number is usual in the field\'s other unit (`vt 0.45 mL`, meant as L), a quick fix writes that unit.',
   },
@@ -291,7 +288,7 @@ export const unusualValue = defineCheck({
     // A tidal volume per kg of PBW has bounds of its own (PN325).
     if (OWN_CHECKS.has(field.id) || !stated.usable || stated.readUnit === null || stated.readUnit === PER_KG_PBW || stated.unitDoubt) return;
     if (field.hard && outOfBounds(stated, field.hard)) return;
-    const soft = isBodySize(field) && isChildAt(ctx, at) ? withoutMinimum(usualBounds(field, barometricMmhg, at)) : usualBounds(field, barometricMmhg, at);
+    const soft = isBodySize(field) ? usualSizeAt(field, usualBounds(field, barometricMmhg, at), ageAt(ctx, at)) : usualBounds(field, barometricMmhg, at);
     // A number written in another unit is compared at the precision written: 20.0 kPa is PaCO2's usual 150 mmHg.
     if (!outOfBounds(stated, soft) || (stated.value !== null && withinAsWritten(stated.value, soft, field, stated.readUnit, stated.item.number === null ? null : stated.item.value?.text ?? null))) return;
     // A unit written in which the number is usual (`vt 0.45 mL`, meant as L) is offered, not preferred:
