@@ -55,20 +55,13 @@ function usualBounds(field: FieldDef, barometricMmhg: number | null, at: Timepoi
 }
 
 /**
- * The age in force (years; the header's at note scope; null: none): under ADULT_FROM_YEARS the
- * usual minimum of height and weight, an adult's (120 cm, 25 kg), is not applied, and under a year
- * a height's is an infant's (`usualSizeAt`); the usual maximum still is. The header's age is its
- * last (a later one replaces an earlier, used or not, as at a timepoint), as the header's lines were
- * read with it.
+ * The age in force (years; the header's at note scope; null: none), as the timeline read the lines
+ * with it (`Timepoint.ageYears`, `Timeline.headerAgeYears`): under ADULT_FROM_YEARS the usual
+ * minimum of height and weight, an adult's (120 cm, 25 kg), is not applied, and under a year a
+ * height's is an infant's (`usualSizeAt`); the usual maximum still is.
  */
 function ageAt(ctx: CheckContext, at: TimepointContext | null): number | null {
-  if (at !== null) return at.timepoint.values.numberOf('age');
-  const header = ctx.analysis.timeline.header;
-  for (let i = header.length - 1; i >= 0; i--) {
-    const s = header[i]!;
-    if (s.field.id === 'age') return s.usable ? s.value : null;
-  }
-  return null;
+  return at !== null ? at.timepoint.ageYears : ctx.analysis.timeline.headerAgeYears;
 }
 
 /**
