@@ -63,8 +63,9 @@ describe('a bare height or weight of a child is read against a child\'s size (PN
     expect(pn204('patient age 6 y, height 70\npatient age 250 y')).toEqual(['PN204 1']);
   });
 
-  it('an age in weeks or days is not in the format (y and mo only): the height is read as for no age', () => {
-    expect(codes('patient age 3 wk, height 50')).toEqual(['PN202 1', 'PN204 1']);
+  it('an age in weeks or days is a child\'s age too (read in years: 3 wk is 0.058 y)', () => {
+    expect(codes('patient age 3 wk, height 50')).toEqual([]);
+    expect(header('patient age 10 d, height 50', 'height')).toEqual([[50, true, null]]);
   });
 
   it('an adult, a patient of 18, or one of no stated age keeps the adult doubt window', () => {

@@ -67,10 +67,11 @@ export function snapshot(r: NoteResult): unknown {
     findings: r.findings,
     header: timeline.header.map(stated),
     headerGasUnit: timeline.headerGasUnit,
+    headerAgeYears: timeline.headerAgeYears,
     readIssues: timeline.readIssues.map(readIssue),
     timepoints: timeline.timepoints.map((tp) => ({
       index: tp.index, line: tp.line, label: tp.label, startLine: tp.startLine, endLine: tp.endLine, time: tp.time,
-      barometricMmhg: tp.barometricMmhg, gasUnit: tp.gasUnit, shownGasUnit: tp.shownGasUnit,
+      barometricMmhg: tp.barometricMmhg, gasUnit: tp.gasUnit, shownGasUnit: tp.shownGasUnit, ageYears: tp.ageYears,
       stated: tp.stated.map(stated),
       values: [...tp.values.entries()].map(([id, v]) => [id, stated(v.stated), origin(v.origin)]),
       // The readers that build nothing must agree with the values built.

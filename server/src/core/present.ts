@@ -7,7 +7,7 @@ import { displayUnit } from './analysis/read-value';
 import type { Timeline } from './analysis/timeline';
 import { fieldById, shortName } from './fields/registry';
 import { convert, unitById, UNITS, type UnitDef } from './fields/units';
-import { formatNumber, formatShort, halfLastDigit, writtenDecimals } from './util/format';
+import { formatAgeYears, formatNumber, formatShort, halfLastDigit, writtenDecimals } from './util/format';
 import { MMHG_PER_KPA } from './physiology/units';
 
 /** Decimals that keep a value's precision in another unit. */
@@ -40,15 +40,13 @@ export function statedNumber(s: StatedValue, unitId?: string): string | null {
   const canonical = unitById(s.unit ?? '');
   const target = unitById(unitId ?? s.unit ?? '') ?? canonical;
   if (s.word !== null || !canonical || !target) return null;
-  // An age written in months is not rounded to whole years (8 mo is 0.67 y, not 1 y): a year is 12 months.
-  if (s.readUnit === 'mo' && target.id === 'y' && s.value !== null && !s.parts) return formatShort(convert(s.value, canonical, target) ?? s.value, YEARS_FROM_MONTHS_DECIMALS);
+  // An age written in months, weeks or days is not rounded to whole years (8 mo is 0.67 y, not 1 y;
+  // 3 d is 0.0082 y, not 0 y): see `formatAgeYears`.
+  if (field.dimension === 'age' && s.readUnit !== null && s.readUnit !== 'y' && target.id === 'y' && s.value !== null && !s.parts) return formatAgeYears(convert(s.value, canonical, target) ?? s.value);
   const decimals = Math.max(decimalsFor(target.id, field.decimals), writtenPrecisionIn(s, target));
   const show = (v: number) => formatNumber(convert(v, canonical, target) ?? v, decimals);
   return s.parts ? s.parts.map(show).join('/') : s.value !== null ? show(s.value) : null;
 }
-
-/** Decimals (at most; trailing zeros dropped) of an age in years read from months: a month is 0.083 y. */
-const YEARS_FROM_MONTHS_DECIMALS = 2;
 
 /** The value and unit as the note wrote them: `71 mmhgg`. */
 function asWritten(s: StatedValue): string {

@@ -71,6 +71,46 @@ function childSizeBounds(id: string): Bounds {
 const CHILD_HEIGHT = childSizeBounds('height');
 const CHILD_WEIGHT = childSizeBounds('weight');
 
+/** Under this age (years) a height is an infant's length, from INFANT_LENGTH_MIN_CM. */
+export const INFANT_UNTIL_YEARS = 1;
+
+/**
+ * The shortest infant after birth, cm: a newborn of 24 weeks of gestation is about 30 cm long (from
+ * memory), a term newborn about 50 cm (common practice, no source). An infant's length below it is
+ * no length at all: a bare `height 10` of an 8-month-old is not offered inches (25 cm), and a
+ * height written in cm below it is unusual (PN302).
+ */
+export const INFANT_LENGTH_MIN_CM = 30;
+
+const INFANT_HEIGHT: Bounds = Object.freeze({ min: INFANT_LENGTH_MIN_CM, max: CHILD_HEIGHT.max });
+
+/**
+ * The size window of a body size of a patient of `ageYears` (null: none in force): under
+ * ADULT_FROM_YEARS a child's (`childSizeBounds`), and for a height under INFANT_UNTIL_YEARS an
+ * infant's, from INFANT_LENGTH_MIN_CM; null for an adult, for no age, and for any other field. It
+ * is both the doubt window of a bare number (`doubtBoundsAt`) and where another unit would make the
+ * number ordinary (`ordinaryBoundsAt`).
+ */
+export function childSizeAt(field: FieldDef, ageYears: number | null): Bounds | null {
+  if (!isChildAge(ageYears) || !isBodySize(field)) return null;
+  if (field.id === 'weight') return CHILD_WEIGHT;
+  return ageYears! < INFANT_UNTIL_YEARS ? INFANT_HEIGHT : CHILD_HEIGHT;
+}
+
+/**
+ * The usual bounds of a body size at an age (PN302), from `usual`, the field's own: a child's have no
+ * usual minimum (an adult's, 120 cm and 25 kg, is none of a child's; common practice, no source),
+ * but an infant's length starts at INFANT_LENGTH_MIN_CM; the usual maximum stays. `usual` itself
+ * for an adult, for no age, and for any other field.
+ */
+export function usualSizeAt(field: FieldDef, usual: Bounds | undefined, ageYears: number | null): Bounds | undefined {
+  const child = childSizeAt(field, ageYears);
+  if (child === null) return usual;
+  const min = child === INFANT_HEIGHT ? INFANT_LENGTH_MIN_CM : undefined;
+  if (usual?.max === undefined) return min === undefined ? {} : { min };
+  return min === undefined ? { max: usual.max } : { min, max: usual.max };
+}
+
 /**
  * The lowest usual inspiratory flow of a patient under ADULT_FROM_YEARS, L/min: half the 4 L/min at
  * the bottom of the 4–10 L/min an infant on a ventilator is usually given (common practice, from
@@ -83,26 +123,29 @@ export const CHILD_INSP_FLOW_MIN_L_PER_MIN = 2;
 const CHILD_INSP_FLOW: Bounds = Object.freeze({ min: CHILD_INSP_FLOW_MIN_L_PER_MIN, max: fieldById('insp_flow')?.soft?.max });
 
 /**
- * A child's window of a field whose usual minimum is an adult's (null for the others): for a body
- * size `childSizeBounds`, for the inspiratory flow CHILD_INSP_FLOW. It is both the doubt window of a
- * bare number and where a number doubted would be ordinary in another unit.
+ * A child's window of a field whose usual minimum is an adult's, for a patient of `ageYears` (null:
+ * none in force): a body size's (`childSizeAt`), the inspiratory flow's CHILD_INSP_FLOW under
+ * ADULT_FROM_YEARS; null for an adult, for no age, and for the other fields. It is both the doubt
+ * window of a bare number and where a number doubted would be ordinary in another unit.
  */
-function childWindow(field: FieldDef): Bounds | null {
-  return field.id === 'height' ? CHILD_HEIGHT : field.id === 'weight' ? CHILD_WEIGHT : field.id === 'insp_flow' ? CHILD_INSP_FLOW : null;
+function childWindowAt(field: FieldDef, ageYears: number | null): Bounds | null {
+  if (field.id === 'insp_flow') return isChildAge(ageYears) ? CHILD_INSP_FLOW : null;
+  return childSizeAt(field, ageYears);
 }
 
 /**
  * The usual bounds of a field for a patient under ADULT_FROM_YEARS, from `usual`, the bounds an
- * adult's value is read against (PN302): a body size keeps only its usual maximum (`isBodySize`),
- * the inspiratory flow a child's minimum (CHILD_INSP_FLOW_MIN_L_PER_MIN), and a tidal volume read
+ * adult's value is read against (PN302), for a patient of `ageYears`: a body size keeps only its
+ * usual maximum, with an infant's length from INFANT_LENGTH_MIN_CM (`usualSizeAt`), the inspiratory flow a child's minimum (CHILD_INSP_FLOW_MIN_L_PER_MIN), and a tidal volume read
  * against no body size (`bodyKg` null: neither a weight nor a predicted body weight in force) has no
  * usual minimum, as a child's size runs from a preterm newborn's to an adult's (common practice,
  * no source); with a body size its minimum is per kg for a child as for an adult (`softBoundsAt`).
  */
-export function childUsualBounds(field: FieldDef, usual: Bounds | undefined, bodyKg: number | null): Bounds | undefined {
+export function childUsualBounds(field: FieldDef, usual: Bounds | undefined, bodyKg: number | null, ageYears: number): Bounds | undefined {
+  if (isBodySize(field)) return usualSizeAt(field, usual, ageYears);
   if (usual === undefined) return usual;
   if (field.id === 'insp_flow') return usual.max === undefined ? { min: CHILD_INSP_FLOW_MIN_L_PER_MIN } : { min: CHILD_INSP_FLOW_MIN_L_PER_MIN, max: usual.max };
-  if (isBodySize(field) || (field.id === 'vt' && (bodyKg === null || !(bodyKg > 0)))) {
+  if (field.id === 'vt' && (bodyKg === null || !(bodyKg > 0))) {
     return usual.min === undefined ? usual : usual.max === undefined ? {} : { max: usual.max };
   }
   return usual;
@@ -112,11 +155,11 @@ export function childUsualBounds(field: FieldDef, usual: Bounds | undefined, bod
  * Where a bare number is read in the unit in force without doubt (see `FieldDef.doubt`): the
  * field's doubt window, else its soft bounds, with the same waiver at low barometric pressure; for
  * a body size of a patient under ADULT_FROM_YEARS (`ageYears`, the age in force where the number
- * is read; null: none), a child's window (`childSizeBounds`); for the inspiratory flow of such a
- * patient, a child's flows (`childWindow`).
+ * is read; null: none), a child's window (`childWindowAt`: a child's size, an infant's length from
+ * INFANT_LENGTH_MIN_CM, a child's inspiratory flow).
  */
 export function doubtBoundsAt(field: FieldDef, barometricMmhg: number | null, ageYears: number | null = null): Bounds | undefined {
-  const child = isChildAge(ageYears) ? childWindow(field) : null;
+  const child = childWindowAt(field, ageYears);
   if (child !== null) return child;
   const doubt = field.doubt;
   if (!doubt) return softBoundsAt(field, barometricMmhg);
@@ -129,12 +172,10 @@ export function doubtBoundsAt(field: FieldDef, barometricMmhg: number | null, ag
 /**
  * Where a bare number doubted in the unit in force would be ordinary in another unit (PN204): the
  * field's soft bounds at the barometric pressure in force, or for a body size or the inspiratory flow
- * of a patient under ADULT_FROM_YEARS a child's window (`childWindow`).
+ * of a patient under ADULT_FROM_YEARS a child's window (`childWindowAt`).
  */
 export function ordinaryBoundsAt(field: FieldDef, barometricMmhg: number | null, ageYears: number | null): Bounds | undefined {
-  const child = isChildAge(ageYears) ? childWindow(field) : null;
-  if (child !== null) return child;
-  return softBoundsAt(field, barometricMmhg);
+  return childWindowAt(field, ageYears) ?? softBoundsAt(field, barometricMmhg);
 }
 
 export function within(value: number, bounds: Bounds | undefined): boolean {
@@ -169,7 +210,8 @@ export function withinAsWritten(value: number, bounds: Bounds | undefined, field
 }
 
 /**
- * The field's units, other than `except`, in which the number as written (`written`) lies within
+ * The field's units, other than `except` and those never offered (`UnitDef.offered`: an age's weeks
+ * and days), in which the number as written (`written`) lies within
  * every one of `bounds` once read into the field's canonical unit: where a number written or
  * read in one unit would be ordinary (PN204 for a bare number, PN301's fix for a written unit).
  */
@@ -180,7 +222,7 @@ export function unitsWithin(field: FieldDef, written: number, except: string | n
   for (const id of field.units ?? []) {
     if (id === except) continue;
     const unit = unitById(id);
-    const value = unit ? convert(written, unit, canonical) : null;
+    const value = unit && unit.offered ? convert(written, unit, canonical) : null;
     if (unit && value !== null && bounds.every((b) => within(value, b))) out.push(unit);
   }
   return out;

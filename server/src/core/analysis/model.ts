@@ -111,6 +111,13 @@ export interface Timepoint {
    * note read in mmHg shows kPa), else `gasUnit`.
    */
   readonly shownGasUnit: 'mmHg' | 'kPa';
+  /**
+   * The age (years) the timepoint's lines were read with: the last age its patient lines state,
+   * wherever it is written, else the one carried to it; null for none, or for one not used. It is
+   * the age in force here (`values.numberOf('age')`), worked out once, before the lines are read
+   * (a bare height written before the age reads with it), and what PN302 judges a body size by.
+   */
+  readonly ageYears: number | null;
 }
 
 /**

@@ -92,6 +92,11 @@ export interface Timeline {
    * setting. Header values are shown in it, as a timepoint's values are shown in its `gasUnit`.
    */
   readonly headerGasUnit: 'mmHg' | 'kPa';
+  /**
+   * The age (years) the header's lines were read with (`ageForReading`): its last age, wherever it
+   * is written; null for none, or for one not used. The one reader of the header's age: PN302 asks it.
+   */
+  readonly headerAgeYears: number | null;
 }
 
 interface BlockResult {
@@ -101,6 +106,8 @@ interface BlockResult {
   readonly stateOut: CarryState;
   /** The time of the last timepoint with a time, up to the end of the block. */
   readonly timeOut: TimepointTime;
+  /** The age (years) the block's lines were read with (`ageForReading`); null: none. */
+  readonly ageYears: number | null;
 }
 
 interface BlockEntry {
@@ -137,7 +144,7 @@ class State implements CarryState {
 }
 
 class Block implements BlockResult {
-  constructor(readonly timepoint: Timepoint | null, readonly header: readonly StatedValue[], readonly issues: readonly ReadIssue[], readonly stateOut: CarryState, readonly timeOut: TimepointTime) {}
+  constructor(readonly timepoint: Timepoint | null, readonly header: readonly StatedValue[], readonly issues: readonly ReadIssue[], readonly stateOut: CarryState, readonly timeOut: TimepointTime, readonly ageYears: number | null) {}
 }
 
 class Entry implements BlockEntry {
@@ -148,7 +155,7 @@ class TimepointAt implements Timepoint {
   constructor(
     readonly index: number, readonly line: number | null, readonly label: string, readonly startLine: number, readonly endLine: number,
     readonly time: TimepointTime, readonly stated: readonly StatedValue[], readonly values: ValuesInForce, readonly barometricMmhg: number | null,
-    readonly gasUnit: 'mmHg' | 'kPa', readonly shownGasUnit: 'mmHg' | 'kPa',
+    readonly gasUnit: 'mmHg' | 'kPa', readonly shownGasUnit: 'mmHg' | 'kPa', readonly ageYears: number | null,
   ) {}
 }
 
@@ -228,7 +235,8 @@ export function buildTimelineIncremental(
     time = result.timeOut;
   }
   timepoints.length = count;
-  return { timeline: { timepoints, readIssues, header, headerGasUnit: headerGasUnit(header, settings) }, cache: { settings, lines, blocks: entries }, moved };
+  const headerAgeYears = entries[0]!.result.ageYears;
+  return { timeline: { timepoints, readIssues, header, headerGasUnit: headerGasUnit(header, settings), headerAgeYears }, cache: { settings, lines, blocks: entries }, moved };
 }
 
 /**
@@ -263,7 +271,7 @@ class Relocator {
     const tp = result.timepoint;
     const stateOut = this.state(result.stateOut);
     const header = result.header.length === 0 ? result.header : result.header.map((s) => this.stated(s));
-    return new Block(tp ? this.timepoint(tp, stateOut) : null, header, issues, stateOut, result.timeOut);
+    return new Block(tp ? this.timepoint(tp, stateOut) : null, header, issues, stateOut, result.timeOut, result.ageYears);
   }
 
   private line(line: number): number {
@@ -292,7 +300,7 @@ class Relocator {
     const stated = tp.stated.map((s) => this.stated(s));
     return new TimepointAt(
       tp.index, tp.line === null ? null : this.line(tp.line), tp.label, this.line(tp.startLine), this.line(tp.endLine),
-      tp.time, stated, new ValuesAt(tp.index, tp.time, state, stated), tp.barometricMmhg, tp.gasUnit, tp.shownGasUnit,
+      tp.time, stated, new ValuesAt(tp.index, tp.time, state, stated), tp.barometricMmhg, tp.gasUnit, tp.shownGasUnit, tp.ageYears,
     );
   }
 
@@ -563,7 +571,7 @@ function processBlock(lines: readonly LineNode[], start: number, end: number, in
   // A timepoint with nothing stated (a bare `@`) shares the empty list.
   const keptStated: readonly StatedValue[] = count === 0 ? NONE : stated.slice(0, count) as StatedValue[];
   for (let k = 0; k < count; k++) stated[k] = undefined;
-  return new Block(tpLabel === null ? null : freeze(index, tpLine, tpLabel, tpStart, tpTime, keptStated, endLine, stateOut, settings), keptHeader, keptIssues, stateOut, timeOut);
+  return new Block(tpLabel === null ? null : freeze(index, tpLine, tpLabel, tpStart, tpTime, keptStated, endLine, stateOut, settings, ageYears), keptHeader, keptIssues, stateOut, timeOut, ageYears);
 }
 
 /** Scratch space of `processBlock`: the values stated at the block's timepoint, and its read issues. */
@@ -612,7 +620,8 @@ function readContext(state: CarryState, settings: Settings, ageYears: number | n
 
 /**
  * The age (years) the lines of the block `lines[start, end)` are read with: the age in force where
- * they are stated, as the checks see it (PN302). In the header (block 0) the header's, in a
+ * they are stated, kept as the block's (`Timepoint.ageYears`, `Timeline.headerAgeYears`), which the
+ * checks ask (PN302): the one reader of the age. In the header (block 0) the header's, in a
  * timepoint's block the timepoint's: the last age its patient lines state (every line of a header
  * or a timepoint describes one moment, so whichever line states the age, before or after a height,
  * gives the same reading), else the one carried to it. An age stated but not used (impossible, or
@@ -1388,10 +1397,10 @@ const FIELD_SLOT: ReadonlyMap<string, number> = new Map(FIELDS.map((f, i) => [f.
 const MASK_BITS = 30;
 if (FIELDS.length > 2 * MASK_BITS) throw new Error('timeline: too many fields for the bits of fields measured at a timepoint');
 
-function freeze(index: number, line: number | null, label: string, startLine: number, time: TimepointTime, stated: readonly StatedValue[], endLine: number, state: CarryState, settings: Settings): Timepoint {
+function freeze(index: number, line: number | null, label: string, startLine: number, time: TimepointTime, stated: readonly StatedValue[], endLine: number, state: CarryState, settings: Settings, ageYears: number | null): Timepoint {
   const values = new ValuesAt(index, time, state, stated);
   const gasUnit = gasUnitInForce(state, settings);
-  return new TimepointAt(index, line, label, startLine, endLine, time, stated, values, barometricAt(state.place, settings), gasUnit, gasUnitWritten(stated) ?? gasUnit);
+  return new TimepointAt(index, line, label, startLine, endLine, time, stated, values, barometricAt(state.place, settings), gasUnit, gasUnitWritten(stated) ?? gasUnit, ageYears);
 }
 
 /**

@@ -41,14 +41,14 @@ function valueCheck(test: (ctx: CheckContext, stated: StatedValue, barometricMmh
 /**
  * The usual bounds of a stated value: its field's soft bounds at the barometric pressure in force,
  * and for a tidal volume at a timepoint, at the patient's body size there (see `softBoundsAt`); for
- * a patient under ADULT_FROM_YEARS (`child`), a child's (`childUsualBounds`).
+ * a patient under ADULT_FROM_YEARS (`ageYears`, the age in force), a child's (`childUsualBounds`).
  */
-function usualBounds(field: FieldDef, barometricMmhg: number | null, at: TimepointContext | null, child = false): Bounds | undefined {
+function usualBounds(field: FieldDef, barometricMmhg: number | null, at: TimepointContext | null, ageYears: number | null = null): Bounds | undefined {
   const bodyKg = field.id === 'vt' && at !== null ? bodySizeKg(at) : null;
   const adult = softBoundsAt(field, barometricMmhg, bodyKg);
   // A child's: the adult usual minimum of a body size, the inspiratory flow and a tidal volume with
   // no body size in force is no child's (`childUsualBounds`).
-  const bounds = child ? childUsualBounds(field, adult, bodyKg) : adult;
+  const bounds = isChildAge(ageYears) ? childUsualBounds(field, adult, bodyKg, ageYears!) : adult;
   // High-frequency oscillation moves 1–3 mL/kg a breath, below any usual minimum of conventional
   // breaths (common practice, no source): there a tidal volume keeps only its usual maximum.
   if (field.id === 'vt' && at !== null && bounds?.min !== undefined && inHfov(at)) {
@@ -60,20 +60,14 @@ function usualBounds(field: FieldDef, barometricMmhg: number | null, at: Timepoi
 }
 
 /**
- * Whether the age in force (the header's at note scope) is under ADULT_FROM_YEARS: then the usual
- * minimum of height and weight, an adult's (120 cm, 25 kg), is not applied (`isBodySize`; common
- * practice, no source), nor the inspiratory flow's (a child's applies) nor, with no body size in
- * force, the tidal volume's (`childUsualBounds`); the usual maximum still is. The header's age is its last (a later one
- * replaces an earlier, used or not, as at a timepoint), as the header's lines were read with it.
+ * The age in force (years; the header's at note scope; null: none), as the timeline read the lines
+ * with it (`Timepoint.ageYears`, `Timeline.headerAgeYears`): under ADULT_FROM_YEARS the usual
+ * minimum of height and weight, an adult's (120 cm, 25 kg), is not applied, and under a year a
+ * height's is an infant's; the inspiratory flow's is a child's, and a tidal volume with no body size
+ * in force has none (`childUsualBounds`); the usual maximum still is.
  */
-function isChildAt(ctx: CheckContext, at: TimepointContext | null): boolean {
-  if (at !== null) return isChildAge(at.timepoint.values.numberOf('age'));
-  const header = ctx.analysis.timeline.header;
-  for (let i = header.length - 1; i >= 0; i--) {
-    const s = header[i]!;
-    if (s.field.id === 'age') return isChildAge(s.usable ? s.value : null);
-  }
-  return false;
+function ageAt(ctx: CheckContext, at: TimepointContext | null): number | null {
+  return at !== null ? at.timepoint.ageYears : ctx.analysis.timeline.headerAgeYears;
 }
 
 /**
@@ -268,7 +262,7 @@ export const unusualValue = defineCheck({
   severity: 'warning',
   tags: ['plausibility'],
   doc: {
-    fires: 'A value is possible but outside the usual (soft) bounds of its field: worth a second look at the unit or the transcription. Low arterial gas pressures are not flagged where the barometric pressure is below 500 mmHg, since they are real at extreme altitude. A tidal volume is usual from 2 mL per kg of body size (the smaller of the weight and the predicted body weight in force), or from 50 mL where the note gives neither; in HFOV, which moves 1–3 mL/kg a breath, it has no usual minimum. In HFOV the set rate is the oscillation frequency, usual from 3 to 15 Hz (180–900 /min) rather than at most 60 /min: a number written bare or in /min that is such a frequency in Hz (`rate 5`) is reported with `Hz` offered; a rate written in Hz in another mode is reported where it is above 60 /min (1 Hz), with its usual maximum in both units and a word that Hz is usual in HFOV, and /min offered where the number is a whole one usual in /min (`rate 14 Hz` in VC; not `rate 1.004 Hz`, a frequency, as rates of breaths are set in whole breaths a minute). A number written in another unit than its field\'s own is compared at the precision written: `pco2 20.0 kPa` is 150.01 mmHg, yet to a tenth of a kPa it is the usual maximum of 150 mmHg, and is not reported. A saturation written as a fraction with no unit (`spo2 0.94`) is reported with the percentage offered, and is not used until it is rewritten. The usual minimum of height and weight is an adult\'s: it is not applied to a patient under 18 years (the age in force), whose usual maximum still is; for such a patient the inspiratory flow is usual from 2 L/min (an infant is given 4–10 L/min) rather than from an adult\'s 10 L/min, and a tidal volume has no usual minimum where the note gives no body size.',
+    fires: 'A value is possible but outside the usual (soft) bounds of its field: worth a second look at the unit or the transcription. Low arterial gas pressures are not flagged where the barometric pressure is below 500 mmHg, since they are real at extreme altitude. A tidal volume is usual from 2 mL per kg of body size (the smaller of the weight and the predicted body weight in force), or from 50 mL where the note gives neither; in HFOV, which moves 1–3 mL/kg a breath, it has no usual minimum. In HFOV the set rate is the oscillation frequency, usual from 3 to 15 Hz (180–900 /min) rather than at most 60 /min: a number written bare or in /min that is such a frequency in Hz (`rate 5`) is reported with `Hz` offered; a rate written in Hz in another mode is reported where it is above 60 /min (1 Hz), with its usual maximum in both units and a word that Hz is usual in HFOV, and /min offered where the number is a whole one usual in /min (`rate 14 Hz` in VC; not `rate 1.004 Hz`, a frequency, as rates of breaths are set in whole breaths a minute). A number written in another unit than its field\'s own is compared at the precision written: `pco2 20.0 kPa` is 150.01 mmHg, yet to a tenth of a kPa it is the usual maximum of 150 mmHg, and is not reported. A saturation written as a fraction with no unit (`spo2 0.94`) is reported with the percentage offered, and is not used until it is rewritten. The usual minimum of height and weight is an adult\'s: it is not applied to a patient under 18 years (the age in force), whose usual maximum still is; for such a patient the inspiratory flow is usual from 2 L/min (an infant is given 4–10 L/min) rather than from an adult\'s 10 L/min, and a tidal volume has no usual minimum where the note gives no body size; under a year a length is usual from 30 cm, the shortest newborn\'s (from memory).',
     example: 'vitals hr 236',
     fix: 'Confirm the value; if it is right, the warning can stay (or the check can be switched off in settings). Where the number is usual in the field\'s other unit (`vt 0.45 mL`, meant as L), a quick fix writes that unit.',
   },
@@ -293,7 +287,7 @@ export const unusualValue = defineCheck({
     // A tidal volume per kg of PBW has bounds of its own (PN325).
     if (OWN_CHECKS.has(field.id) || !stated.usable || stated.readUnit === null || stated.readUnit === PER_KG_PBW || stated.unitDoubt) return;
     if (field.hard && outOfBounds(stated, field.hard)) return;
-    const soft = usualBounds(field, barometricMmhg, at, isChildAt(ctx, at));
+    const soft = usualBounds(field, barometricMmhg, at, ageAt(ctx, at));
     // A number written in another unit is compared at the precision written: 20.0 kPa is PaCO2's usual 150 mmHg.
     if (!outOfBounds(stated, soft) || (stated.value !== null && withinAsWritten(stated.value, soft, field, stated.readUnit, stated.item.number === null ? null : stated.item.value?.text ?? null))) return;
     // A unit written in which the number is usual (`vt 0.45 mL`, meant as L) is offered, not preferred:

@@ -9,7 +9,7 @@ import { SOURCES } from '../physiology';
 import { PER_KG_ADULT_FROM_YEARS, PER_KG_PBW, pbwFrom, VT_PER_KG_HARD_MAX, VT_PER_KG_USUAL } from '../analysis/per-kg-volume';
 import type { StatedValue } from '../analysis/model';
 import { toRange } from '../syntax/tree';
-import { formatShort } from '../util/format';
+import { formatAgeYears, formatShort } from '../util/format';
 import { defineCheck, type TimepointContext } from './check';
 import { inHfov } from './oscillation';
 import type { Fix } from '../types';
@@ -75,7 +75,7 @@ function missingPbw(ctx: TimepointContext): string {
   if (sex !== 'male' && sex !== 'female') lacking.push('sex');
   if (lacking.length > 0) return `needs the ${lacking.join(' and ')} on a patient line`;
   if (age !== null && age < PER_KG_ADULT_FROM_YEARS) {
-    return `is not worked out at age ${formatShort(age)} y: the ARDS Network equation is for adults (${PER_KG_ADULT_FROM_YEARS} years or more)`;
+    return `is not worked out at age ${formatAgeYears(age)} y: the ARDS Network equation is for adults (${PER_KG_ADULT_FROM_YEARS} years or more)`;
   }
   if (pbwFrom(height, sex, age) === null) return `the ARDS Network equation does not give for a height of ${formatShort(height!, 0)} cm`;
   return 'needs the height and sex stated before the vent line';

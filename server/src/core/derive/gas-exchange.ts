@@ -19,7 +19,7 @@ import {
   sfRatio,
 } from '../physiology';
 import { ADULT_FROM_YEARS, defineDerived, withDecimals, type DeriveContext, type Outcome, type Term, type ValueExtras } from './context';
-import { decimalsAgainst, formatNumber, formatShort } from '../util/format';
+import { decimalsAgainst, formatAgeYears, formatNumber, formatShort } from '../util/format';
 import { SEA_LEVEL_MMHG, pressureFitsAltitude } from './atmosphere';
 import type { Settings } from '../settings';
 import { ABOVE_INSPIRED_BECAUSE } from './model';
@@ -203,7 +203,7 @@ export const aaGradientUpperNormalDef = defineDerived({
   compute(c) {
     const age = c.field('age', 'age');
     if (!age) return c.missing([age, c.needFor('age', 'age (patient line)')]);
-    if (isUnderAdultAge(age.value)) return { kind: 'na', reason: `${AA_RULES_FOR_ADULTS}: no upper normal at age ${formatShort(age.value)} y`, explained: true };
+    if (isUnderAdultAge(age.value)) return { kind: 'na', reason: `${AA_RULES_FOR_ADULTS}: no upper normal at age ${formatAgeYears(age.value)} y`, explained: true };
     const upper = aaGradientUpperNormal(age.value, c.settings.aaGradientRule);
     // Shown beside the gradient: with the decimals that keep the gradient on its side of it (A–a 11.8 above 11.5, not 12 and 12).
     const gradient = c.derivedValue('aa_gradient')?.value;

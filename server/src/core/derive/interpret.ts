@@ -7,7 +7,7 @@
 import { ANION_GAP_UPPER_NORMAL_MMOL_L, BERLIN_BAND_SEVERITY, HCO3_CENTRE_MMOL_L, HCO3_NORMAL_MMOL_L, PACO2_NORMAL_MMHG, PH_NORMAL, berlinOxygenationBand, inspiredPo2Humidified, type AcidBaseClassification, type AcidBaseDisorder, type BerlinOxygenationBand, type MetabolicAcidosisKind, type PrimaryAcidBaseFinding } from '../physiology';
 import { sideOf } from '../physiology/numeric';
 import type { Settings } from '../settings';
-import { formatAgainst, formatNumber, formatShort, rangeAgainst, wordList, writtenDecimals } from '../util/format';
+import { formatAgainst, formatAgeYears, formatNumber, formatShort, rangeAgainst, wordList, writtenDecimals } from '../util/format';
 import { carriedFromText, kpaFromMmhg, kpaNumber, kpaResolutionMmhg, showsKpa, statedKpaNumber, statedNumber } from '../present';
 import type { StatedValue } from '../analysis/model';
 import { classification } from './acid-base';
@@ -248,7 +248,7 @@ function readOxygenation(g: GasFacts, out: Interpretation[]): void {
   const age = peep.fieldId === 'peep' ? c.field('age', 'age') : null;
   if (age !== null && pf !== null && isUnderAdultAge(age.value)) {
     g.peep = peep;
-    out.push(new Reading('oxygenation-band', BASIS_CHILD_BAND, g, false, `P/F ${g.gas.kpa ? `${kpaNumber(pf.value)} kPa (${formatShort(pf.value, 0)} mmHg)` : `${formatShort(pf.value, 0)} mmHg`} with ${peep.name} ${formatShort(peep.value)} cmH2O${carriedOf(g.fio2, peep)} at age ${formatShort(age.value)} y: ${CHILD_BAND_WORDS}`));
+    out.push(new Reading('oxygenation-band', BASIS_CHILD_BAND, g, false, `P/F ${g.gas.kpa ? `${kpaNumber(pf.value)} kPa (${formatShort(pf.value, 0)} mmHg)` : `${formatShort(pf.value, 0)} mmHg`} with ${peep.name} ${formatShort(peep.value)} cmH2O${carriedOf(g.fio2, peep)} at age ${formatAgeYears(age.value)} y: ${CHILD_BAND_WORDS}`));
     return;
   }
   // The altitude adjustment scales the resolution as it scales the P/F.

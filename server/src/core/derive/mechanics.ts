@@ -17,7 +17,7 @@ import {
 } from '../physiology';
 import type { NoninvasiveSupport } from '../analysis/noninvasive-support';
 import { ADULT_FROM_YEARS, defineDerived, withDecimals, type DeriveContext, type Outcome, type Term, type ValueExtras } from './context';
-import { decimalsAgainst, formatShort } from '../util/format';
+import { decimalsAgainst, formatAgeYears, formatShort } from '../util/format';
 
 export const minuteVentilation = defineDerived({
   id: 'minute_ventilation',
@@ -88,7 +88,7 @@ export const pbw = defineDerived({
     // The equation was made for adults: a child's weight is not read from it (nor a tidal volume per kg).
     const age = c.number('age');
     // Said where the value would have been (show, the hovers), as nothing can be added to get it.
-    if (age !== null && age < PBW_ADULT_FROM_YEARS) return { kind: 'na', reason: `${PBW_FOR_ADULTS}: not worked out at age ${formatShort(age)} y`, explained: true };
+    if (age !== null && age < PBW_ADULT_FROM_YEARS) return { kind: 'na', reason: `${PBW_FOR_ADULTS}: not worked out at age ${formatAgeYears(age)} y`, explained: true };
     const male = sex.word === 'male';
     const weight = predictedBodyWeightKg(height.value, male ? 'male' : 'female');
     // Far below 152.4 cm the line reaches 0 kg (about 102 cm for a woman): no weight, rather than "add PBW".

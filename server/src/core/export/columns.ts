@@ -230,6 +230,11 @@ const LAST_WRITTEN_NOTE: Readonly<Record<string, string>> = {
   hb: ' The same analyte on a `labs`, an `abg` and a `vbg` line: when a timepoint states it on more than one, the one written last is in the cell (FHIR gives each its own Observation).',
 };
 
+/** Fields written in several units whose column holds one of them, said in their column's description. */
+const ONE_UNIT_NOTE: Readonly<Record<string, string>> = {
+  age: ' Always in years, whatever unit the note wrote, at the 12 significant digits and 12 decimals at most of every exported number (`age 8 mo` is 0.666666666667, `age 3 d` 0.008213552361, a year being 365.25 days): an age of days is never rounded to 0. FHIR gives the age in the unit written (`a`, `mo`, `wk`, `d`).',
+};
+
 /**
  * The usable value of a field stated at a timepoint on a line of one section: the last one written
  * there (an earlier one in the same section is replaced, PN206); null when none, or not usable.
@@ -293,7 +298,7 @@ function fieldColumns(field: FieldDef, index: number, onlySection: SectionId | n
   return [{
     ...base,
     name: slug ? `${field.id}_${slug}` : field.id,
-    description: `${field.label}: ${field.description}${SECTION_NOTE[field.id] ?? LAST_WRITTEN_NOTE[field.id] ?? ''}`,
+    description: `${field.label}: ${field.description}${SECTION_NOTE[field.id] ?? LAST_WRITTEN_NOTE[field.id] ?? ONE_UNIT_NOTE[field.id] ?? ''}`,
     unit,
     ucum,
     type: 'number',

@@ -48,7 +48,8 @@
  * on, or come from the project's reference notes. Nothing is looked up when exporting.
  *
  * Every Observation has `status: final` and a `valueQuantity` in the field's canonical unit
- * (gases in mmHg, whatever the note wrote), to 12 significant digits (precision.ts), with the UCUM code of the unit
+ * (gases in mmHg, whatever the note wrote; but the age in the unit it was written in: years `a`,
+ * months `mo`, weeks `wk`, days `d`), to 12 significant digits (precision.ts), with the UCUM code of the unit
  * registry (`system` http://unitsofmeasure.org). Observations have no subject, performer or
  * identifier: notes carry none.
  *
@@ -115,7 +116,7 @@ import type { DerivedValue } from '../derive/model';
 import { derivedValueOf } from '../derive/registry';
 import { FIELDS, loincFor, type FieldDef, type LoincCode } from '../fields/registry';
 import { measuredByMode } from '../fields/modes';
-import { unitById } from '../fields/units';
+import { convert, unitById } from '../fields/units';
 import type { SectionId } from '../fields/sections';
 import { assertExportOptions, writtenLabel } from './columns';
 import { exportedNumber } from './precision';
@@ -454,6 +455,19 @@ function quantity(value: number, unitId: string): FhirQuantity | null {
   return { value: exported, unit: unitForPeople(unitId) ?? unit.id, system: UCUM, code: unit.ucum };
 }
 
+/**
+ * An age in the unit it was written in (`age 3 d` is 3 `d`, `age 8 mo` 8 `mo`, a bare age years,
+ * `a`), not in years: an age of days in years is a long fraction a reader of the bundle would have
+ * to convert back. `value` is in the field's unit (years), `readUnit` the unit it was read in.
+ */
+function ageQuantity(value: number, unitId: string, readUnit: string | null): FhirQuantity | null {
+  const canonical = unitById(unitId);
+  const written = readUnit === null ? undefined : unitById(readUnit);
+  if (!canonical || !written || written.dimension !== canonical.dimension) return quantity(value, unitId);
+  const inWritten = convert(value, canonical, written);
+  return inWritten === null ? null : quantity(inWritten, written.id);
+}
+
 /** An Observation while it is made, its members added in the order they are written. */
 type ObservationParts = { -readonly [K in keyof FhirObservation]?: FhirObservation[K] };
 
@@ -510,7 +524,7 @@ function fieldObservation(field: FieldDef, input: InputValue, place: Place, what
     if (!s || !d) return null;
   } else {
     const value = input.stated.value;
-    q = finite(value) ? quantity(value, unitId) : null;
+    q = finite(value) ? (field.dimension === 'age' ? ageQuantity(value, unitId, input.stated.readUnit) : quantity(value, unitId)) : null;
     if (!q) return null;
   }
   const code: FhirCodeableConcept = loinc ? { coding: [{ system: LOINC, code: loinc.code, display: loinc.display }], text: field.label } : { text: field.label };

@@ -35,6 +35,14 @@ export interface UnitDef {
   readonly toBase: (value: number) => number;
   /** Value in the dimension's base unit → value in this unit. */
   readonly fromBase: (value: number) => number;
+  /**
+   * Whether a number written without this unit, or with another, may be offered it (`unitsWithin`:
+   * PN204, the fixes of PN301 and PN302, a thousands reading). False for an age's weeks and days:
+   * nearly any large number is an ordinary age in weeks or days (900 wk is 17 years, 900 d 2.5), so
+   * guessing them would drown the one guess that helps (a bare `age 900` is 75 years in months), and
+   * a neonatal note writes the unit.
+   */
+  readonly offered: boolean;
 }
 
 /** The internal id of haemoglobin's mmol/L (a mass concentration by its molar mass), written `mmol/L`. */
@@ -44,6 +52,9 @@ export const HB_MMOL_PER_L = 'mmolHb/L';
 /** Exact conversions from the definitions of the units (physiology/units.ts holds the constants). */
 const CMH2O_PER_MBAR = 100 / PA_PER_CMH2O; // 1.019716
 const MMHG_PER_HPA = 100 / PA_PER_MMHG; // 0.750062
+
+/** Days in UCUM's year `a`, the Julian year. */
+const DAYS_PER_YEAR = 365.25;
 
 const linear = (factor: number) => ({
   toBase: (v: number) => v * factor,
@@ -67,8 +78,9 @@ function unit(
   ucum: string,
   conversion: { toBase: (v: number) => number; fromBase: (v: number) => number },
   aliases: readonly string[] = [],
+  offered = true,
 ): UnitDef {
-  return { id, dimension, ucum, aliases, ...conversion };
+  return { id, dimension, ucum, aliases, ...conversion, offered };
 }
 
 /** Base units: mmHg, cmH2O, fraction, %, /min (Hz converts to it), °C, mL, L/min, g/dL, mmol/L, cm, kg, years, pH units. */
@@ -114,6 +126,12 @@ export const UNITS: readonly UnitDef[] = [
   unit('lb', 'mass', '[lb_av]', linear(0.45359237), ['lbs']),
   unit('y', 'age', 'a', linear(1), ['yr', 'yrs', 'years', 'year', 'a']),
   unit('mo', 'age', 'mo', part(12), ['months', 'month']),
+  // UCUM's year `a` is the Julian year of 365.25 days, its week 7 days (a definition). `d` and `day`
+  // are also words of a timepoint's time (`@ day 2`, `@ +1d`), which only an `@` line reads: on a
+  // patient line they name the unit, and no other unit of the format is spelt so.
+  // Written, never guessed (see `UnitDef.offered`).
+  unit('wk', 'age', 'wk', part(DAYS_PER_YEAR / 7), ['wks', 'week', 'weeks'], false),
+  unit('d', 'age', 'd', part(DAYS_PER_YEAR), ['day', 'days'], false),
   unit('ph', 'ph', '[pH]', linear(1), []),
 ];
 

@@ -36,6 +36,19 @@ export function formatShort(value: number, max = 2): string {
 }
 
 /**
+ * An age in years as people read it beside `y`: two decimals (8 months is 0.67 y, 30 months 2.5 y;
+ * trailing zeros dropped), and under a year two significant digits, up to four decimals, so an age
+ * written in weeks or days is not shown as 0 y (3 days is 0.0082 y, 1 day 0.0027 y, 6 weeks 0.11 y).
+ */
+export function formatAgeYears(years: number): string {
+  if (!(years > 0 && years < 1)) return formatShort(years, 2);
+  return formatShort(years, Math.min(AGE_MAX_DECIMALS, Math.max(2, 1 - Math.floor(Math.log10(years)))));
+}
+
+/** Decimals of an age in years at most: a day is 0.0027 y. */
+const AGE_MAX_DECIMALS = 4;
+
+/**
  * Decimals at which `value` shows on the same side of every threshold given as it is: from
  * `decimals` up to as many as it takes (6 at most). A PaO2 of 59.6 against 60 shows as 59.6, not
  * as 60 next to "below 60"; a range end of 26.995 against 27 as 26.995, where 27.00 would put it
