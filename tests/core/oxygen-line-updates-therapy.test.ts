@@ -501,6 +501,11 @@ describe('a line naming a device at the timepoint where an oxygen line is in for
     const fixed = applyEdits(text, f[0]!.fixes[0]!.edits);
     expect([inForce(fixed, 0, 'device'), inForce(fixed, 0, 'ipap'), inForce(fixed, 0, 'o2_flow')]).toEqual([['niv', 'here', 2], [14, 'here', 1], [50, 'here', 2]]);
     expect(codes(fixed, 'PN206')).toEqual([]);
+    // Of three devices, the fix writes the one in force (the last above), whose settings are lost.
+    const three = at('oxygen cannula 2', 'oxygen niv ipap 14, epap 6', 'oxygen hfnc 40 L/min');
+    const g = codes(three, 'PN206').filter((x) => x.range.start.line === 3 && x.message.startsWith('Oxygen device'));
+    expect(g.map((x) => x.message)).toEqual(['Oxygen device is stated twice at this timepoint; the later value is used. This line replaces the oxygen above it: the IPAP and EPAP of line 3 are no longer in force.']);
+    expect(g[0]!.fixes.map((x) => x.title)).toEqual(['Write `niv` here, as on line 3 (one therapy: the settings above stay in force)']);
     // Not where the line writes what the first device does not take: an FiO2 after a cannula.
     expect(codes(at('oxygen cannula 2', 'oxygen hfnc fio2 0.6'), 'PN206').flatMap((x) => x.fixes)).toEqual([]);
   });

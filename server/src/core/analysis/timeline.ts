@@ -374,7 +374,7 @@ class Relocator {
 
   /**
    * Fixes moved: the lines an edit names (another line than its finding's) and the lines its title
-   * names (`Remove line 3`), or null where one cannot be.
+   * names (`… as on line 2`), or null where one cannot be.
    */
   private fixes(fixes: readonly LineFix[]): readonly LineFix[] | null {
     let moves = false;
@@ -816,14 +816,15 @@ function replacedDevice(s: StatedValue, earlier: StatedValue, stated: readonly (
     line,
     span: s.item.key?.span ?? s.item.span,
     message: `${s.field.label} is stated twice at this timepoint; ${s.usable ? 'the later value is used' : 'the later value replaces the first, but is not used itself (see its finding)'}. This line replaces the oxygen above it: ${wordList(groups)} ${lost.length === 1 ? 'is' : 'are'} no longer in force.`,
-    fixes: oneTherapyFix(s, earlier, stated, from, to, lines),
+    // The device in force (the last named above), else the first.
+    fixes: oneTherapyFix(s, heldOxygen.get('device')?.stated ?? earlier, stated, from, to, lines),
     related,
   };
 }
 
 /**
- * Where every other value of the line that names the device `s` is a setting of the device first
- * stated (`earlier`, `deviceSets`), a fix that writes that device, as written there, in place of
+ * Where every other value of the line that names the device `s` is a setting of the device above
+ * it (`earlier`, `deviceSets`), a fix that writes that device, as written there, in place of
  * `s`: the line then names the device in force again and updates it (`updatedDevice`), so the
  * settings above stay and every value written is kept (`oxygen niv ipap 14, epap 6` then `oxygen
  * hfnc 50 L/min` → `oxygen niv 50 L/min`). Not preferred: the line may say that the therapy
