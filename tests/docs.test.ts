@@ -460,7 +460,11 @@ const SPEC_LINES: Readonly<Record<string, readonly string[] | { readonly on: str
   'oxygen flow 3': { on: '@ 08:00\noxygen cannula 2\noxygen flow 3', codes: ['PN206'] },
   // Under NIV a vent line of the support's readings: the measured volume is asked for there only.
   'vent peak 16': { on: '@ 08:00\noxygen niv ipap 14, epap 6, fio2 0.4\nvent peak 16', codes: [] },
-  'oxygen niv fio2 0.4': { on: '@ 08:00\noxygen niv ipap 14, epap 6\noxygen niv fio2 0.4', codes: ['PN206'] },
+  // The device in force named again at its timepoint continues that therapy: nothing is stated twice.
+  'oxygen niv fio2 0.4': { on: '@ 08:00\noxygen niv ipap 14, epap 6\noxygen niv fio2 0.4', codes: [] },
+  // Vent lines of one timepoint: the later updates the settings.
+  'vent mode PC, pinsp 20, peep 8': [],
+  'vent fio2 0.5': { on: '@ 08:00\nvent mode PC, pinsp 20, peep 8\nvent fio2 0.5', codes: [] },
   // NIV or CPAP by its pressures alone, updated as the device named would be.
   'oxygen level 8': [],
   'oxygen level 10': { on: '@ 08:00\noxygen level 8\n@ 10:00\noxygen level 10', codes: [] },

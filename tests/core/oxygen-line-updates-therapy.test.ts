@@ -9,7 +9,7 @@ import { checkNote } from '../../server/src/core/check-note';
 import type { Timepoint } from '../../server/src/core/analysis/model';
 import { deviceSets } from '../../server/src/core/analysis/noninvasive-support';
 import { timepointRows, toFhirBundle } from '../../server/src/core/export';
-import { hoverAt } from '../../server/src/core/service';
+import { applyEdits, hoverAt } from '../../server/src/core/service';
 import { NoteSession } from '../../server/src/core/session';
 import { derived } from '../derive/helpers';
 import { noteAt } from '../service/cursor';
@@ -307,10 +307,11 @@ describe('a later oxygen line of the same timepoint that names no device updates
     expect(codes(text, 'PN206').map((f) => f.range.start.line)).toEqual([2]);
   });
 
-  it('a line naming a device there still replaces, as at a later timepoint (the device stated twice, PN206)', () => {
+  it('a line naming the same device again there updates it too: the pressures stay, and the device is not stated twice', () => {
     const text = '@ day 1 08:00\noxygen niv ipap 14, epap 6\noxygen niv fio2 0.4\n';
-    expect(inForce(text, 0, 'ipap')).toEqual([null, null, null]);
-    expect(codes(text, 'PN206')).toHaveLength(1);
+    expect([inForce(text, 0, 'device'), inForce(text, 0, 'ipap'), inForce(text, 0, 'epap'), inForce(text, 0, 'fio2')])
+      .toEqual([['niv', 'here', 2], [14, 'here', 1], [6, 'here', 1], [0.4, 'here', 2]]);
+    expect(codes(text, 'PN206')).toEqual([]);
   });
 
   it('the update carries on to later timepoints as the one line would', () => {
@@ -441,5 +442,107 @@ describe('an open note', () => {
       const r = session.update(text);
       expect(sameAsJson(snapshot(r), snapshot(checkNote(text)))).toBe(true);
     }
+  });
+});
+
+// Two oxygen lines of one timepoint that name a device describe one moment. Naming the device in
+// force again there (or NIV or CPAP named where its pressures made it so) continues that therapy,
+// as a line naming no device does: before, it replaced the line above it whole, and
+// `oxygen niv ipap 14, epap 6` then `oxygen niv fio2 0.4` held no pressure, with a PN206 that said
+// only that the device was stated twice. Naming another device there replaces, and PN206 names
+// the settings that are no longer in force, with fixes that keep either line.
+describe('a line naming a device at the timepoint where an oxygen line is in force', () => {
+  const at = (...lines: string[]) => `@ day 1 08:00\n${lines.join('\n')}\n`;
+
+  it('NIV by its pressures, then NIV named with its FiO2: one therapy, nothing reported', () => {
+    const text = at('oxygen ipap 14, epap 6', 'oxygen niv fio2 0.4');
+    expect([inForce(text, 0, 'device'), inForce(text, 0, 'ipap'), inForce(text, 0, 'epap'), inForce(text, 0, 'fio2')])
+      .toEqual([['niv', 'here', 2], [14, 'here', 1], [6, 'here', 1], [0.4, 'here', 2]]);
+    expect(codes(text, 'PN206')).toEqual([]);
+  });
+
+  it('high flow named again with a new FiO2: the flow stays; the FiO2 stated twice is reported, the later used', () => {
+    const text = at('oxygen hfnc 50 L/min, fio2 0.6', 'oxygen hfnc fio2 0.4');
+    expect([inForce(text, 0, 'o2_flow'), inForce(text, 0, 'fio2')]).toEqual([[50, 'here', 1], [0.4, 'here', 2]]);
+    const f = codes(text, 'PN206');
+    expect(f.map((x) => [x.range.start.line, x.message])).toEqual([[2, 'FiO2 is stated twice at this timepoint; the later value is used.']]);
+  });
+
+  it('a cannula named again at a new flow: the later flow, reported as the flow stated twice (not the device)', () => {
+    const text = at('oxygen cannula 2', 'oxygen cannula 3');
+    expect([inForce(text, 0, 'device'), inForce(text, 0, 'o2_flow')]).toEqual([['cannula', 'here', 2], [3, 'here', 2]]);
+    expect(codes(text, 'PN206').map((x) => x.message)).toEqual(['Oxygen flow is stated twice at this timepoint; the later value is used.']);
+  });
+
+  it('carries on to a later timepoint as the one line would', () => {
+    const text = `${at('oxygen niv ipap 14, epap 6', 'oxygen niv fio2 0.4')}@ day 1 10:00\nvitals spo2 95\n`;
+    expect([inForce(text, 1, 'ipap'), inForce(text, 1, 'fio2')]).toEqual([[14, 'carried', 1], [0.4, 'carried', 2]]);
+  });
+
+  it('another device replaces: PN206 names the settings of the line above no longer in force, and offers to keep either line', () => {
+    const text = at('oxygen    niv ipap 14, epap 6, fio2 0.5', 'oxygen    hfnc 50 L/min');
+    expect([inForce(text, 0, 'device'), inForce(text, 0, 'ipap'), inForce(text, 0, 'fio2')]).toEqual([['hfnc', 'here', 2], [null, null, null], [null, null, null]]);
+    const f = codes(text, 'PN206');
+    expect(f).toHaveLength(1);
+    expect(f[0]!.range.start.line).toBe(2);
+    expect(f[0]!.message).toBe('Oxygen device is stated twice at this timepoint; the later value is used. This line replaces the oxygen above it: the IPAP, EPAP and FiO2 of line 2 are no longer in force.');
+    expect((f[0]!.related ?? []).map((r) => [r.range.start.line, r.range.start.character, r.message])).toEqual([
+      [1, 10, 'first stated here'],
+      [1, 14, 'no longer in force: replaced by line 3'],
+      [1, 23, 'no longer in force: replaced by line 3'],
+      [1, 31, 'no longer in force: replaced by line 3'],
+    ]);
+    // One fix, not preferred: the device of line 2 written on line 3, which then continues that
+    // therapy (every value written is kept; removing a line would lose what it says).
+    expect(f[0]!.fixes.map((x) => [x.title, applyEdits(text, x.edits)])).toEqual([
+      ['Write `niv` here, as on line 2 (one therapy: the settings above stay in force)', at('oxygen    niv ipap 14, epap 6, fio2 0.5', 'oxygen    niv 50 L/min')],
+    ]);
+    expect(f[0]!.fixes.some((x) => x.preferred)).toBe(false);
+    const fixed = applyEdits(text, f[0]!.fixes[0]!.edits);
+    expect([inForce(fixed, 0, 'device'), inForce(fixed, 0, 'ipap'), inForce(fixed, 0, 'o2_flow')]).toEqual([['niv', 'here', 2], [14, 'here', 1], [50, 'here', 2]]);
+    expect(codes(fixed, 'PN206')).toEqual([]);
+    // Of three devices, the fix writes the one in force (the last above), whose settings are lost.
+    const three = at('oxygen cannula 2', 'oxygen niv ipap 14, epap 6', 'oxygen hfnc 40 L/min');
+    const g = codes(three, 'PN206').filter((x) => x.range.start.line === 3 && x.message.startsWith('Oxygen device'));
+    expect(g.map((x) => x.message)).toEqual(['Oxygen device is stated twice at this timepoint; the later value is used. This line replaces the oxygen above it: the IPAP and EPAP of line 3 are no longer in force.']);
+    expect(g[0]!.fixes.map((x) => x.title)).toEqual(['Write `niv` here, as on line 3 (one therapy: the settings above stay in force)']);
+    // Not where the line writes what the first device does not take: an FiO2 after a cannula.
+    expect(codes(at('oxygen cannula 2', 'oxygen hfnc fio2 0.6'), 'PN206').flatMap((x) => x.fixes)).toEqual([]);
+  });
+
+  it('a device with a flow replaced by one restating its flow: only what is not restated is named', () => {
+    const text = at('oxygen hfnc 50 L/min, fio2 0.6', 'oxygen mask 10');
+    // (The flow, restated, is reported as stated twice as before: the later is used.)
+    expect(codes(text, 'PN206').map((x) => x.message).filter((m) => m.startsWith('Oxygen device'))).toEqual(['Oxygen device is stated twice at this timepoint; the later value is used. This line replaces the oxygen above it: the FiO2 of line 2 is no longer in force.']);
+    // Settings of two lines (a device, then a line of its own that updates it), named by line.
+    const two = at('oxygen niv ipap 14, epap 6', 'oxygen fio2 0.4', 'oxygen mask 10');
+    expect(codes(two, 'PN206').map((x) => x.message)).toEqual(['Oxygen device is stated twice at this timepoint; the later value is used. This line replaces the oxygen above it: the IPAP and EPAP of line 2 and the FiO2 of line 3 are no longer in force.']);
+    // Nothing left to lose: the plain message.
+    expect(codes(at('oxygen cannula 2', 'oxygen mask 8'), 'PN206').map((x) => x.message).filter((m) => m.startsWith('Oxygen device'))).toEqual(['Oxygen device is stated twice at this timepoint; the later value is used.']);
+  });
+
+  it('the same device on a line with a word it does not read replaces, as any such line does, and says what is lost', () => {
+    const text = at('oxygen niv ipap 14, epap 6', 'oxygen niv fio2 0.4, fooo 3');
+    expect(inForce(text, 0, 'ipap')).toEqual([null, null, null]);
+    expect(codes(text, 'PN206').map((x) => x.message)).toEqual(['Oxygen device is stated twice at this timepoint; the later value is used. This line replaces the oxygen above it: the IPAP and EPAP of line 2 are no longer in force.']);
+  });
+
+  it('a vent line between ends the oxygen line: the device named again starts afresh, and nothing is named as lost', () => {
+    const text = at('oxygen niv ipap 14, epap 6', 'vent mode PC, pinsp 20, peep 8', 'oxygen niv fio2 0.4');
+    expect([inForce(text, 0, 'ipap'), inForce(text, 0, 'device')]).toEqual([[null, null, null], ['niv', 'here', 3]]);
+    expect(codes(text, 'PN206').map((x) => x.message)).toEqual(['Oxygen device is stated twice at this timepoint; the later value is used.']);
+  });
+
+  it('at a later timepoint a line naming the device still replaces the therapy in force (unchanged)', () => {
+    const text = '@ day 1 08:00\noxygen niv ipap 14, epap 6\n@ day 1 10:00\noxygen niv fio2 0.4\n';
+    expect([inForce(text, 1, 'device'), inForce(text, 1, 'ipap'), inForce(text, 1, 'fio2')]).toEqual([['niv', 'here', 3], [null, null, null], [0.4, 'here', 3]]);
+    expect(codes(text, 'PN206')).toEqual([]);
+  });
+
+  it('vent lines of one timepoint update the settings as they always did: a further line of its FiO2 keeps the mode and pressures', () => {
+    const text = at('vent mode PC, pinsp 20, peep 8', 'vent fio2 0.5');
+    expect([inForce(text, 0, 'mode'), inForce(text, 0, 'insp_pressure'), inForce(text, 0, 'peep'), inForce(text, 0, 'fio2')])
+      .toEqual([['PC', 'here', 1], [20, 'here', 1], [8, 'here', 1], [0.5, 'here', 2]]);
+    expect(codes(text, 'PN206')).toEqual([]);
   });
 });

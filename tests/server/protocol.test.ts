@@ -167,6 +167,18 @@ describe('language features', () => {
     expect(all?.edit?.changes?.[broken]?.length).toBe(2);
   });
 
+  it('applies two renames of one line that each keep its comment in its column in one source.fixAll', async () => {
+    const text = '@ 08:00\nvent      plateu 24, amplitde 30     # in column 37\n';
+    const uri = client.open(join(process.cwd(), 'two-renames.pneu'), text);
+    const p = await client.diagnostics(uri);
+    expect(codes(p.diagnostics)).toEqual(['PN201', 'PN201']);
+    const at = { line: 0, character: 0 };
+    const actions = await client.connection.sendRequest<CodeAction[]>('textDocument/codeAction', { textDocument: { uri }, range: { start: at, end: at }, context: { diagnostics: [], only: ['source.fixAll'] } });
+    const all = actions.find((a) => a.kind === 'source.fixAll');
+    expect(all?.title).toBe('Apply every safe fix in the note (2)');
+    expect(applyEdits(text, all!.edit!.changes![uri]!)).toBe('@ 08:00\nvent      plateau 24, amplitude 30   # in column 37\n');
+  });
+
   it('offers a misspelt oxygen device of two words as one quick fix over both words', async () => {
     const text = '@ 08:00\noxygen room aor\n';
     const uri = client.open(join(process.cwd(), 'device-words.pneu'), text);

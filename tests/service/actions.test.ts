@@ -708,4 +708,48 @@ describe('a trailing comment stays in its column', () => {
     expect(fixAll!.findingCodes).toEqual(['PN105']);
     expect(fixed).toBe('oxygen    hfnc 40 L/min, fio2 60 %  # in column 36');
   });
+
+  // Each did-you-mean rename of a key keeps the comment's column on its own (`renameKeepingColumns`):
+  // a key one letter longer takes one blank from before the comment. Two such renames on one line
+  // took the same blank, so their edits overlapped and fix-all applied one per run. Fix-all now
+  // makes one edit of the comment's blanks per line, for all its renames together.
+  const fixAllOf = (text: string) => codeActions(checkNote(text), { start: { line: 0, character: 0 }, end: { line: 0, character: 0 } }).find((a) => a.kind === 'source.fixAll');
+
+  it('fix-all applies two renames that each take a blank before the comment in one run', () => {
+    const text = note('@ 08:00', 'vent      plateu 24, amplitde 30     # in column 37');
+    const fixAll = fixAllOf(text)!;
+    expect(fixAll.title).toBe('Apply every safe fix in the note (2)');
+    expect(editsOverlap(fixAll.edits)).toBe(false);
+    const fixed = applyEdits(text, fixAll.edits);
+    // Two letters more: the comment stays in column 37.
+    expect(fixed.split('\n')[1]).toBe('vent      plateau 24, amplitude 30   # in column 37');
+    expect(checkNote(fixed).findings.filter((f) => f.code === 'PN201')).toEqual([]);
+    // Of its kind too (PN201, 2 places).
+    const ofKind = codeActions(checkNote(text), { start: { line: 1, character: 11 }, end: { line: 1, character: 11 } }).find((a) => a.title.startsWith('Fix all in the note: ') && (a.findingCodes ?? []).includes('PN201'))!;
+    expect(applyEdits(text, ofKind.edits)).toBe(fixed);
+  });
+
+  it('fix-all of two renames whose growth together passes the comment: two spaces after the content, as one rename would leave', () => {
+    // Three spaces before the comment and two letters more: not one space, nor the comment moved twice.
+    const text = note('@ 08:00', 'vent      plateu 24, amplitde 30   # gas');
+    const fixed = applyEdits(text, fixAllOf(text)!.edits);
+    expect(fixed.split('\n')[1]).toBe('vent      plateau 24, amplitude 30  # gas');
+  });
+
+  it('fix-all of a rename one letter longer and one one letter shorter on one line leaves the comment where it was', () => {
+    const text = note('@ 08:00', 'vent      plateu 24, pinspp 20    # in column 34');
+    const fixAll = fixAllOf(text)!;
+    expect(fixAll.title).toBe('Apply every safe fix in the note (2)');
+    expect(applyEdits(text, fixAll.edits).split('\n')[1]).toBe('vent      plateau 24, pinsp 20    # in column 34');
+  });
+
+  it('fix-all of renames on several lines, each line with its comment, in one run', () => {
+    const text = note('@ 08:00', 'vent      plateu 24, amplitde 30     # a', 'vitals    spoo2 95, tempp 37        # b');
+    const fixAll = fixAllOf(text)!;
+    expect(fixAll.title).toBe('Apply every safe fix in the note (4)');
+    expect(applyEdits(text, fixAll.edits).split('\n').slice(1, 3)).toEqual([
+      'vent      plateau 24, amplitude 30   # a',
+      'vitals    spo2 95, temp 37          # b',
+    ]);
+  });
 });

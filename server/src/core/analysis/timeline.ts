@@ -8,8 +8,9 @@
  * line with a `fio2` and no device beside one whose device gives the FiO2, `venturi 28`: the two
  * hold as one, see `pairsAcrossLines`; and for a line at a later timepoint that names no device
  * and writes only settings of the device in force, `oxygen flow 4` after `oxygen cannula 2`, which
- * updates that therapy (as does such a line below the device's at its own timepoint): the device
- * and the settings it does not restate carry, see `updatedDevice`;
+ * updates that therapy (as does such a line below the device's at its own timepoint, and one there
+ * that names the same device again): the device and the settings it does not restate carry, see
+ * `updatedDevice`;
  * NIV or CPAP written by its pressures alone counts as that device, none being made up);
  * a `vent` line that states a setting ends oxygen-line therapy (one of readings only ends nothing;
  * under NIV or CPAP its tidal volume is the measured one, of its timepoint) and updates the ventilator settings it restates,
@@ -45,6 +46,7 @@ import { sectionById, type SectionId } from '../fields/sections';
 import type { Settings } from '../settings';
 import type { ItemNode, LineEdit, LineFix, LineNode, NoteTree, SectionLine, Span, TimepointLine } from '../syntax/tree';
 import { itemsRemovalSpan } from '../syntax/tree';
+import { renameKeepingColumns } from '../syntax/layout';
 import { MAX_DAY } from '../syntax/parser';
 import { OSCILLATION_MODE } from '../physiology/mechanics';
 import { familyInForce, isMeasuredIn, isMeasuredUnder, modeFamily, type ModeFamily } from '../fields/modes';
@@ -56,7 +58,7 @@ import type { ReadIssue } from './read-issues';
 import { readItem, type ReadContext } from './read-value';
 import { NONE } from '../util/lists';
 import { compact } from '../util/numbers';
-import { formatNumber, writtenDecimals } from '../util/format';
+import { formatNumber, wordList, writtenDecimals } from '../util/format';
 
 interface Held {
   readonly stated: StatedValue;
@@ -378,13 +380,21 @@ class Relocator {
     return out;
   }
 
-  /** Fixes moved: the lines an edit names (another line than its finding's), or null where one cannot be. */
+  /**
+   * Fixes moved: the lines an edit names (another line than its finding's) and the lines its title
+   * names (`… as on line 2`), or null where one cannot be.
+   */
   private fixes(fixes: readonly LineFix[]): readonly LineFix[] | null {
     let moves = false;
-    for (const fix of fixes) for (const e of fix.edits) if (e.line !== undefined || e.endLine !== undefined) moves = true;
+    for (const fix of fixes) {
+      for (const e of fix.edits) if (e.line !== undefined || e.endLine !== undefined) moves = true;
+      if (!moves && moveLineNames(this.shift, fix.title) !== fix.title) moves = true;
+    }
     if (!moves) return fixes;
     const out: LineFix[] = [];
     for (const fix of fixes) {
+      const title = moveLineNames(this.shift, fix.title);
+      if (title === null) return null;
       const edits: LineEdit[] = [];
       for (const e of fix.edits) {
         const line = e.line === undefined ? undefined : shiftedLine(this.shift, e.line);
@@ -392,7 +402,7 @@ class Relocator {
         if (line === null || endLine === null) return null;
         edits.push({ span: e.span, newText: e.newText, ...(line === undefined ? {} : { line }), ...(endLine === undefined ? {} : { endLine }) });
       }
-      out.push({ ...fix, edits });
+      out.push({ ...fix, title, edits });
     }
     return out;
   }
@@ -551,12 +561,14 @@ function processBlock(lines: readonly LineNode[], start: number, end: number, in
     const from = inHeader ? into.length : count;
     const to = readLine(node, context.read, issues, into, from);
     if (!inHeader) count = to;
-    const paired = to > from ? duplicates(into, from, to, inHeader ? seenInHeader : seenAtTimepoint, inHeader, issues, lines, mutable.oxygen) : null;
+    // The device of the oxygen therapy in force that this oxygen line updates rather than replaces (`updatedDevice`).
+    const updated = node.section === 'oxygen' && !inHeader ? updatedDevice(mutable.oxygen, into, from, to, node.items, index) : null;
+    const paired = to > from ? duplicates(into, from, to, inHeader ? seenInHeader : seenAtTimepoint, inHeader, issues, lines, mutable.oxygen, updated) : null;
     if (paired !== null) {
       // The FiO2 of a device on one oxygen line and a `fio2` on another: the two lines state one therapy.
       mutable.oxygen = holdPaired(mutable.oxygen, into, from, to, index, tpLabel!, tpTime);
       mutable.vent = EMPTY;
-    } else apply(node.section, into, from, to, inHeader ? -1 : index, inHeader ? 'header' : tpLabel!, inHeader ? START_TIME : tpTime, mutable, node.items);
+    } else apply(node.section, into, from, to, inHeader ? -1 : index, inHeader ? 'header' : tpLabel!, inHeader ? START_TIME : tpTime, mutable, updated);
   }
   SEEN_IN_HEADER.reset();
   SEEN_AT_TIMEPOINT.reset();
@@ -729,12 +741,21 @@ const SEEN_AT_TIMEPOINT = new FirstSeen();
  * of the timepoint (`pairsAcrossLines`). Returns the `fio2` written where the second of two such
  * lines is `stated[from, to)` and the two were compared (they state one therapy: `holdPaired`).
  */
-function duplicates(stated: readonly (StatedValue | undefined)[], from: number, to: number, seen: FirstSeen, inHeader: boolean, issues: ReadIssue[], lines: readonly LineNode[], heldOxygen: HeldMap): StatedValue | null {
+function duplicates(stated: readonly (StatedValue | undefined)[], from: number, to: number, seen: FirstSeen, inHeader: boolean, issues: ReadIssue[], lines: readonly LineNode[], heldOxygen: HeldMap, updated: string | null): StatedValue | null {
   let paired: StatedValue | null = null;
   for (let k = from; k < to; k++) {
     const s = stated[k]!;
     const earlier = seen.earlier(s);
     if (!earlier) continue;
+    if (s.fieldId === 'device' && s.section === 'oxygen') {
+      // The device in force named again at its timepoint: the line continues that therapy (`updatedDevice`).
+      if (updated !== null) continue;
+      const replaced = replacedDevice(s, earlier, stated, from, to, heldOxygen, lines);
+      if (replaced !== null) {
+        issues.push(replaced);
+        continue;
+      }
+    }
     if (s.fieldId === 'fio2' && s.section === 'oxygen') {
       // `oxygen venturi 28, fio2 0.28`, or the two on lines of their own: the FiO2 read from the
       // number after the device, and a `fio2` written. Later `fio2`s are compared with the one
@@ -768,6 +789,73 @@ function duplicates(stated: readonly (StatedValue | undefined)[], from: number, 
     });
   }
   return paired;
+}
+
+/**
+ * The oxygen device stated twice at one timepoint where the later line replaces the oxygen held
+ * (another device, or one it does not update: `updatedDevice`), and some setting held of the
+ * oxygen above it is not restated by the line (`stated[from, to)`, the device `s`; `earlier`, the
+ * device first stated): the finding says which settings are no longer in force, and of which line
+ * (`oxygen niv ipap 14, epap 6` then `oxygen hfnc 50 L/min`: the IPAP and EPAP of line 2), names
+ * each where it was written, and may offer to write the first device on the line (`oneTherapyFix`). Null where
+ * nothing held is lost: the plain duplicate.
+ */
+function replacedDevice(s: StatedValue, earlier: StatedValue, stated: readonly (StatedValue | undefined)[], from: number, to: number, heldOxygen: HeldMap, lines: readonly LineNode[]): ReadIssue | null {
+  const lost: StatedValue[] = [];
+  heldOxygen.forEach((held, id) => {
+    if (id === 'device') return;
+    for (let k = from; k < to; k++) if (stated[k]!.fieldId === id) return;
+    lost.push(held.stated);
+  });
+  if (lost.length === 0) return null;
+  lost.sort((a, b) => a.line - b.line || a.item.span.start - b.item.span.start);
+  const groups: string[] = [];
+  for (let i = 0; i < lost.length;) {
+    const line = lost[i]!.line;
+    const labels: string[] = [];
+    for (; i < lost.length && lost[i]!.line === line; i++) labels.push(settingName(lost[i]!.field));
+    groups.push(`the ${wordList(labels)} of line ${line + 1}`);
+  }
+  const line = s.line;
+  const first = earlier.line;
+  const related = [{ line: first, span: earlier.item.span, message: 'first stated here' }];
+  for (const v of lost) related.push({ line: v.line, span: v.item.span, message: `no longer in force: replaced by line ${line + 1}` });
+  return {
+    check: 'duplicate-key',
+    line,
+    span: s.item.key?.span ?? s.item.span,
+    message: `${s.field.label} is stated twice at this timepoint; ${s.usable ? 'the later value is used' : 'the later value replaces the first, but is not used itself (see its finding)'}. This line replaces the oxygen above it: ${wordList(groups)} ${lost.length === 1 ? 'is' : 'are'} no longer in force.`,
+    // The device in force (the last named above), else the first.
+    fixes: oneTherapyFix(s, heldOxygen.get('device')?.stated ?? earlier, stated, from, to, lines),
+    related,
+  };
+}
+
+/**
+ * Where every other value of the line that names the device `s` is a setting of the device above
+ * it (`earlier`, `deviceSets`), a fix that writes that device, as written there, in place of
+ * `s`: the line then names the device in force again and updates it (`updatedDevice`), so the
+ * settings above stay and every value written is kept (`oxygen niv ipap 14, epap 6` then `oxygen
+ * hfnc 50 L/min` → `oxygen niv 50 L/min`). Not preferred: the line may say that the therapy
+ * changed. Else none: removing a line would lose what it says.
+ */
+function oneTherapyFix(s: StatedValue, earlier: StatedValue, stated: readonly (StatedValue | undefined)[], from: number, to: number, lines: readonly LineNode[]): readonly LineFix[] {
+  const device = earlier.word;
+  const written = earlier.item.value?.text;
+  const node = lines[s.line];
+  if (device === null || !earlier.usable || written === undefined || node === undefined) return NONE;
+  for (let k = from; k < to; k++) {
+    const v = stated[k]!;
+    if (v.fieldId !== 'device' && !deviceSets(device, v.fieldId)) return NONE;
+  }
+  const span = s.item.value?.span ?? s.item.span;
+  return [{ title: `Write \`${written}\` here, as on line ${earlier.line + 1} (one therapy: the settings above stay in force)`, edits: renameKeepingColumns(node.text, span, written) }];
+}
+
+/** A setting named inside a sentence: its label, in lower case where it is words (`oxygen flow`), as written where it is a short name (`IPAP`, `FiO2`). */
+function settingName(field: FieldDef): string {
+  const label = field.label;
+  return /^[A-Z][a-z]+(?: |$)/.test(label) ? label.charAt(0).toLowerCase() + label.slice(1) : label;
 }
 
 /**
@@ -981,16 +1069,18 @@ function copyInto(this: Map<string, Held>, held: Held, id: string): void {
   this.set(id, held);
 }
 
-/** Holds the settings among `stated[from, to)`, the values of one `section` line (its `items`). */
-function apply(section: SectionId, stated: (StatedValue | undefined)[], from: number, to: number, tp: number, label: string, time: TimepointTime, state: MutableState, items: readonly ItemNode[]): void {
+/**
+ * Holds the settings among `stated[from, to)`, the values of one `section` line; `updated`, for an
+ * oxygen line, the device of the therapy in force it updates (`updatedDevice`), else null.
+ */
+function apply(section: SectionId, stated: (StatedValue | undefined)[], from: number, to: number, tp: number, label: string, time: TimepointTime, state: MutableState, updated: string | null): void {
   switch (section) {
     case 'patient': state.patient = hold(state.patient, stated, from, to, tp, label, time); break;
     case 'place': if (to > from) state.place = hold(EMPTY, stated, from, to, tp, label, time); break;
     case 'units': { const g = firstOf(stated, from, to, 'gas_unit'); if (g?.word) state.gasUnit = new HeldValue(g, tp, label, time); break; }
     case 'oxygen': {
       // A later line that restates settings of the device in force (or of NIV or CPAP by its pressures) updates it; any other replaces it.
-      const device = updatedDevice(state.oxygen, stated, from, to, items);
-      state.oxygen = device === null ? hold(EMPTY, stated, from, to, tp, label, time) : holdUpdate(state.oxygen, device, stated, from, to, tp, label, time);
+      state.oxygen = updated === null ? hold(EMPTY, stated, from, to, tp, label, time) : holdUpdate(state.oxygen, updated, stated, from, to, tp, label, time);
       state.vent = EMPTY;
       break;
     }
@@ -1051,18 +1141,47 @@ function apply(section: SectionId, stated: (StatedValue | undefined)[], from: nu
  * 6` after a cannula: NIV by its pressures; `oxygen level 8` after NIV by its pressures: CPAP), any
  * line after room air (it takes no setting), and any line where no device or support is in force
  * (under ventilation, after a line of only a flow or an FiO2, or nothing).
+ *
+ * At the timepoint `tp` where an oxygen line in force was written (some value held of it is of
+ * `tp`), a line that names that device again (the same word; `niv` or `cpap` where the pressures
+ * made the support) updates it too, whatever else it writes: the lines of one timepoint describe
+ * one moment, and one device named twice there is one therapy written on two lines (`oxygen niv
+ * ipap 14, epap 6` then `oxygen niv fio2 0.4` holds both pressures and the FiO2). At a later
+ * timepoint, and where it names another device, such a line replaces (PN206 names what is lost).
  */
-function updatedDevice(oxygen: HeldMap, stated: readonly (StatedValue | undefined)[], from: number, to: number, items: readonly ItemNode[]): string | null {
+function updatedDevice(oxygen: HeldMap, stated: readonly (StatedValue | undefined)[], from: number, to: number, items: readonly ItemNode[], tp: number): string | null {
   if (to === from || oxygen.size === 0) return null;
   const held = oxygen.get('device');
   const device = held !== undefined ? (held.stated.usable ? held.stated.word : null) : noninvasiveSupport(null, oxygen);
   if (device === null) return null;
+  let named = false;
   for (let k = 0; k < items.length; k++) {
     const item = items[k]!;
-    if (item.implied === 'device' || item.field === null) return null;
+    if (item.field === null) return null;
+    if (item.implied === 'device') named = true;
   }
+  if (named) return namesDeviceAgain(oxygen, device, stated, from, to, tp) ? device : null;
   for (let k = from; k < to; k++) if (!deviceSets(device, stated[k]!.fieldId)) return null;
   return device;
+}
+
+/**
+ * Whether the oxygen line `stated[from, to)`, which names a device, names `device` (the device of the
+ * therapy in force, `oxygen`) again at the timepoint `tp` where that therapy was written: every
+ * device it names reads as `device`, and some value held of it is of `tp`.
+ */
+function namesDeviceAgain(oxygen: HeldMap, device: string, stated: readonly (StatedValue | undefined)[], from: number, to: number, tp: number): boolean {
+  let named = false;
+  for (let k = from; k < to; k++) {
+    const s = stated[k]!;
+    if (s.fieldId !== 'device') continue;
+    if (!s.usable || s.word !== device) return false;
+    named = true;
+  }
+  if (!named) return false;
+  let here = false;
+  oxygen.forEach((h) => { if (h.timepoint === tp) here = true; });
+  return here;
 }
 
 /**

@@ -21,7 +21,7 @@ import { allStated, isValidPosition, itemAt, lineAt, statedOf, timepointOfLine }
 import { OSCILLATION_MODE } from '../physiology/mechanics';
 import { parseLine } from '../syntax/parser';
 import type { LineNode } from '../syntax/tree';
-import { applyEdits, editsOverlap, keepingCommentColumns } from './text-edits';
+import { applyEdits, editsOverlap, keepingCommentColumns, withoutCommentColumnEdits } from './text-edits';
 import { displayUnit } from '../analysis/read-value';
 import { ITEMS_PER_STEP, runSteps, type Steps } from '../util/steps';
 import { convertNoteUnits, convertNoteUnitSteps, itemConversionEdits, numberIn, otherUnits, shorthandConversionEdits, shorthandPressures, type GasUnit } from './unit-conversion';
@@ -378,7 +378,9 @@ class TakenRanges {
 
 /**
  * Edits of the safe fixes of these findings, skipping any that would overlap an earlier one, with
- * each changed line's trailing comment kept in its column.
+ * each changed line's trailing comment kept in its column: one edit of its blanks per line, made for
+ * all the line's fixes together (`withoutCommentColumnEdits`), so that two renames of one line that
+ * each keep the column on their own are both applied in one run.
  */
 function safeEdits(result: NoteResult, findings: readonly Finding[]): SafeEdits {
   return runSteps(safeEditSteps(result, findings));
@@ -387,6 +389,7 @@ function safeEdits(result: NoteResult, findings: readonly Finding[]): SafeEdits 
 /** `safeEdits` in steps, yielding after every ITEMS_PER_STEP findings (see util/steps.ts). */
 function* safeEditSteps(result: NoteResult, findings: readonly Finding[]): Steps<SafeEdits> {
   const edits: TextEdit[] = [];
+  const lineText = lineTextOf(result);
   const taken = new TakenRanges();
   const codes = new Set<string>();
   const fixed: Finding[] = [];
@@ -395,13 +398,15 @@ function* safeEditSteps(result: NoteResult, findings: readonly Finding[]): Steps
     const f = findings[i]!;
     const fix = preferredFix(f);
     if (!fix || fix.edits.length === 0) continue;
-    if (editsOverlap(fix.edits) || fix.edits.some((e) => taken.overlaps(e.range))) continue;
-    for (const e of fix.edits) taken.add(e.range);
-    pushAll(edits, fix.edits);
+    // The blanks that keep a comment in its column are made once per line, for all its fixes, below.
+    const own = withoutCommentColumnEdits(lineText, fix.edits);
+    if (editsOverlap(own) || own.some((e) => taken.overlaps(e.range))) continue;
+    for (const e of own) taken.add(e.range);
+    pushAll(edits, own);
     codes.add(f.code);
     fixed.push(f);
   }
-  return { edits: keepingCommentColumns(lineTextOf(result), edits), codes: [...codes], count: fixed.length, fixed };
+  return { edits: keepingCommentColumns(lineText, edits), codes: [...codes], count: fixed.length, fixed };
 }
 
 /** The findings whose preferred fix is safe, and the fix-all edits, kept per analysis (a note that does not change gives the same result). */

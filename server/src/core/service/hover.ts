@@ -318,7 +318,7 @@ function carryText(field: FieldDef, section: SectionId, stated: StatedValue | nu
   if (kind === 'header') return section === 'place' ? 'Carries forward: yes, until a later `place` line replaces the place.' : 'Carries forward: yes, for the whole note until restated.';
   if (kind === 'setting' && !field.reading) {
     return section === 'oxygen'
-      ? 'Carries forward: yes, until the next `oxygen` line (which replaces it, but for one that names no device and restates only settings of the device in force, or of NIV or CPAP written by its pressures, at a later timepoint or below it at its own, which updates those) or a `vent` line with a setting (one of readings only ends nothing).'
+      ? 'Carries forward: yes, until the next `oxygen` line (which replaces it, but for one that names no device and restates only settings of the device in force, or of NIV or CPAP written by its pressures, at a later timepoint or below it at its own, which updates those, as does one below it at its own timepoint that names the same device again) or a `vent` line with a setting (one of readings only ends nothing).'
       : 'Carries forward: yes, until restated (a new `mode` keeps only PEEP and FiO2; a change to or from HFOV only FiO2), or until an `oxygen` line.';
   }
   // "Reading" names Pneumark's interpretations elsewhere: a value measured on a device is a measurement.

@@ -121,3 +121,36 @@ export function keepingCommentColumns(lineText: (line: number) => string | undef
   }
   return out;
 }
+
+/**
+ * `edits` without those that only move a line's trailing comment: an edit of plain spaces to plain
+ * spaces between the end of the line's content and its comment, where the same `edits` change that
+ * line elsewhere too (a rename's `keepCommentColumn` edit, `renameKeepingColumns`). Fix-all gathers
+ * the fixes of many findings and asks `keepingCommentColumns` for one such edit per line, made for
+ * all the line's changes together: two fixes that each kept the column on their own would take the
+ * same blanks (their edits overlap, and one was left for the next run), or together too many.
+ * `lineText` gives the text of a line of the note.
+ */
+export function withoutCommentColumnEdits(lineText: (line: number) => string | undefined, edits: readonly TextEdit[]): readonly TextEdit[] {
+  let out: TextEdit[] | null = null;
+  for (let i = 0; i < edits.length; i++) {
+    const e = edits[i]!;
+    const drop = movesCommentOnly(lineText, e) && edits.some((other) => other !== e && other.range.start.line === e.range.start.line && !movesCommentOnly(lineText, other));
+    if (drop && out === null) out = edits.slice(0, i);
+    else if (!drop && out !== null) out.push(e);
+  }
+  return out ?? edits;
+}
+
+/** Whether `e` replaces plain spaces with plain spaces between the end of its line's content and the line's trailing comment. */
+function movesCommentOnly(lineText: (line: number) => string | undefined, e: TextEdit): boolean {
+  const line = e.range.start.line;
+  if (e.range.end.line !== line || !/^ *$/.test(e.newText)) return false;
+  const text = lineText(line);
+  if (text === undefined) return false;
+  const comment = text.indexOf('#');
+  if (comment < 0) return false;
+  let contentEnd = comment;
+  while (contentEnd > 0 && text.charCodeAt(contentEnd - 1) === 0x20) contentEnd--;
+  return e.range.start.character >= contentEnd && e.range.end.character <= comment;
+}
