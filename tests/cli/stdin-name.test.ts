@@ -31,11 +31,11 @@ async function cli(args: readonly string[], cwd: string, stdin = ''): Promise<{ 
   return { code, out: io.out(), err: io.err() };
 }
 
-/** The fullUrls of a FHIR export's Observations by resource id, and each Bundle's id. */
+/** The fullUrls of a FHIR export's Observations by resource id (not the Patient's), and each Bundle's id. */
 function fhirIds(out: string): { bundles: string[]; observations: Map<string, string> } {
-  const bundles = JSON.parse(out) as { id: string; entry: { fullUrl: string; resource: { id: string } }[] }[];
+  const bundles = JSON.parse(out) as { id: string; entry: { fullUrl: string; resource: { resourceType: string; id: string } }[] }[];
   const observations = new Map<string, string>();
-  for (const b of bundles) for (const e of b.entry) observations.set(e.resource.id, e.fullUrl);
+  for (const b of bundles) for (const e of b.entry) if (e.resource.resourceType === 'Observation') observations.set(e.resource.id, e.fullUrl);
   return { bundles: bundles.map((b) => b.id), observations };
 }
 

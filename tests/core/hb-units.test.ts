@@ -8,12 +8,12 @@
 import { UcumLhcUtils } from '@lhncbc/ucum-lhc';
 import { describe, expect, it } from 'vitest';
 import { checkNote } from '../../server/src/core';
-import { timepointRows, toFhirBundle } from '../../server/src/core/export';
 import { FIELDS } from '../../server/src/core/fields/registry';
 import { SECTIONS } from '../../server/src/core/fields/sections';
 import { convert, unitById, unitsForSpelling } from '../../server/src/core/fields/units';
 import { HB_G_PER_DL_PER_MMOL_L, HB_MONOMER_G_PER_MOL } from '../../server/src/core/physiology/units';
 import { formatAlternative, formatStated } from '../../server/src/core/present';
+import { bundleObservations, timepointRows, toFhirBundle } from '../../server/src/core/export';
 
 const ucum = UcumLhcUtils.getInstance();
 
@@ -92,7 +92,7 @@ describe('haemoglobin in mmol/L', () => {
     const row = timepointRows('n.pneu', result, { redactProse: false, shiftDays: 0 })[0]!;
     expect(row['hb_g_dL']).toBeCloseTo(12.8916, 4);
     const bundle = toFhirBundle('n.pneu', result, { redactProse: false, shiftDays: 0 });
-    const obs = (bundle.entry ?? []).map((e) => e.resource).find((o) => o.code.text === 'Haemoglobin')!;
+    const obs = bundleObservations(bundle).find((o) => o.code.text === 'Haemoglobin')!;
     expect(obs.code.coding?.[0]?.code).toBe('718-7');
     expect(obs.valueQuantity).toMatchObject({ unit: 'g/dL', system: 'http://unitsofmeasure.org', code: 'g/dL' });
     expect(obs.valueQuantity!.value).toBeCloseTo(12.8916, 4);

@@ -8,12 +8,12 @@ import { describe, expect, it } from 'vitest';
 import { checkNote } from '../../server/src/core/check-note';
 import type { Timepoint } from '../../server/src/core/analysis/model';
 import { deviceSets } from '../../server/src/core/analysis/noninvasive-support';
-import { timepointRows, toFhirBundle } from '../../server/src/core/export';
 import { applyEdits, hoverAt } from '../../server/src/core/service';
 import { NoteSession } from '../../server/src/core/session';
 import { derived } from '../derive/helpers';
 import { noteAt } from '../service/cursor';
 import { sameAsJson, snapshot } from './session-snapshot';
+import { bundleObservations, timepointRows, toFhirBundle } from '../../server/src/core/export';
 
 const plain = { redactProse: false, shiftDays: 0 } as const;
 const PATIENT = 'patient   age 60 y, sex female, height 165 cm\n';
@@ -389,7 +389,7 @@ describe('what reads the oxygen in force', () => {
   it('FHIR: the flow written on a line that updates high flow is a total gas flow, not coded as the oxygen flow', () => {
     const text = `${PATIENT}@ day 1 08:00\noxygen hfnc 50 L/min, fio2 0.6\n@ day 1 12:00\noxygen flow 40 L/min\n`;
     const bundle = toFhirBundle('a.pneu', checkNote(text, {}, { keepDerivations: true }), plain);
-    const flows = (bundle.entry ?? []).map((e) => e.resource).filter((o) => /^obs-\d+-o2-flow/.test(o.id));
+    const flows = bundleObservations(bundle).filter((o) => /^obs-\d+-o2-flow/.test(o.id));
     expect(flows.map((o) => o.valueQuantity?.value)).toEqual([50, 40]);
     for (const o of flows) expect(o.code.coding ?? []).toEqual([]);
   });

@@ -12,9 +12,9 @@ import { PBW_ADULT_FROM_YEARS } from '../../server/src/core/derive/mechanics';
 import { PER_KG_ADULT_FROM_YEARS } from '../../server/src/core/analysis/per-kg-volume';
 import { applyEdits } from '../../server/src/core/service/text-edits';
 import { completionsAt, hoverAt } from '../../server/src/core/service';
-import { timepointRows, toFhirBundle } from '../../server/src/core/export';
 import { formatStated } from '../../server/src/core/present';
 import { noteAt } from '../service/cursor';
+import { bundleObservations, timepointRows, toFhirBundle } from '../../server/src/core/export';
 
 const codes = (text: string) => checkNote(text).findings.map((f) => f.code);
 const findings = (text: string, code: string) => checkNote(text).findings.filter((f) => f.code === code);
@@ -157,7 +157,7 @@ describe('exports of a tidal volume per kg', () => {
   });
 
   it('FHIR: the tidal volume Observation in mL where it was read, none where it was not', () => {
-    const vtOf = (text: string) => toFhirBundle('note.pneu', checkNote(text), plain).entry?.map((e) => e.resource).filter((r) => r.code.coding?.[0]?.code === '20112-9') ?? [];
+    const vtOf = (text: string) => bundleObservations(toFhirBundle('note.pneu', checkNote(text), plain)).filter((r) => r.code.coding?.[0]?.code === '20112-9') ?? [];
     const [obs] = vtOf(MALE);
     expect(obs?.valueQuantity?.unit).toBe('mL');
     expect(obs?.valueQuantity?.value).toBeCloseTo(423.396, 9);

@@ -51,8 +51,8 @@ describe('notes with nothing to export, and notes that cannot be read', () => {
     const bundles = JSON.parse(fhir.stdout) as { entry?: unknown[] }[];
     // One Bundle per note that holds one (an empty note is reported as such, not exported as an
     // empty collection); a header alone gives its values (age and height: a FHIR Observation needs
-    // no time, where a CSV row needs a timepoint).
-    expect(bundles.map((b) => b.entry?.length ?? 0)).toEqual([2, 2, 1]);
+    // no time, where a CSV row needs a timepoint); each with its Patient, last.
+    expect(bundles.map((b) => b.entry?.length ?? 0)).toEqual([3, 3, 2]);
   });
 });
 

@@ -3,13 +3,13 @@
 import { readFileSync } from 'node:fs';
 import { UcumLhcUtils } from '@lhncbc/ucum-lhc';
 import { describe, expect, it } from 'vitest';
-import { exportColumns, findingsByTimepoint, findingsOfTimepoint, RANGE_DERIVED_IDS, timepointRows, toFhirBundle, unitSlug, type Row } from '../../server/src/core/export';
 import { allDerivations } from '../../server/src/core/analysis/analyse';
 import { DERIVED } from '../../server/src/core/derive/registry';
 import { FIELDS } from '../../server/src/core/fields/registry';
 import { fixtureFiles } from '../helpers/expectations';
 import { checked, samples } from './helpers';
 import { renderColumnTable } from '../../server/src/core/export/docs';
+import { exportColumns, findingsByTimepoint, findingsOfTimepoint, observationEntries, RANGE_DERIVED_IDS, type Row, timepointRows, toFhirBundle, unitSlug } from '../../server/src/core/export';
 
 const plain = { redactProse: false, shiftDays: 0 } as const;
 /** 1 kPa in mmHg: 1000 Pa ÷ 133.322387415 Pa (NIST SP 811). */
@@ -87,7 +87,7 @@ describe('the unit a column names for people', () => {
     const bundle = toFhirBundle('note.pneu', checked(note), { redactProse: false, shiftDays: 0 });
     const byField = new Map(exportColumns().filter((c) => c.kind === 'field' && c.section === null && c.part === null).map((c) => [c.source, c]));
     const compared: string[] = [];
-    for (const entry of bundle.entry ?? []) {
+    for (const entry of observationEntries(bundle)) {
       const fieldId = /^obs-(?:\d+|header)-(.+)$/.exec(entry.resource.id)?.[1]?.replace(/-/g, '_');
       const column = fieldId === undefined ? undefined : byField.get(fieldId);
       const quantity = entry.resource.valueQuantity;

@@ -39,7 +39,7 @@ import { readdirSync, readFileSync } from 'node:fs';
 import { UcumLhcUtils } from '@lhncbc/ucum-lhc';
 import { describe, expect, it } from 'vitest';
 import { checkNote, type NoteResult } from '../../server/src/core/check-note';
-import { exportColumns, timepointRows, toCsv, toFhirBundle, toJsonl, type Cell, type FhirObservation, type Row } from '../../server/src/core/export';
+import { bundleObservations, type Cell, exportColumns, type FhirObservation, observationEntries, type Row, timepointRows, toCsv, toFhirBundle, toJsonl } from '../../server/src/core/export';
 
 const KPA = 1000 / 133.322387415; // mmHg per kPa, 7.500617
 const HPA = 100 / 133.322387415; // mmHg per hPa, 0.750062
@@ -521,7 +521,7 @@ describe('FHIR Observations worked out by hand', () => {
     const { path, result } = note(name);
     return toFhirBundle(path, result, { anchor, redactProse: false, shiftDays });
   };
-  const observations = (name: string, anchor = ANCHOR, shiftDays = 0) => (bundle(name, anchor, shiftDays).entry ?? []).map((e) => e.resource);
+  const observations = (name: string, anchor = ANCHOR, shiftDays = 0) => bundleObservations(bundle(name, anchor, shiftDays));
 
   it('kPa shorthand gas: values in mmHg, the P/F derived from the PaO2 and FiO2 Observations', () => {
     const t = '2030-01-01T10:00:00Z';
@@ -537,8 +537,8 @@ describe('FHIR Observations worked out by hand', () => {
       ['obs-0-pf-ratio', ...PF, (10.8 * KPA) / 0.4, 'mm[Hg]', t],
     ], '01');
     const b = bundle('01-kpa-shorthand');
-    const url = (id: string) => b.entry!.find((e) => e.resource.id === id)!.fullUrl;
-    expect(b.entry!.find((e) => e.resource.id === 'obs-0-pf-ratio')!.resource.derivedFrom).toEqual([{ reference: url('obs-0-pao2') }, { reference: url('obs-0-fio2') }]);
+    const url = (id: string) => observationEntries(b).find((e) => e.resource.id === id)!.fullUrl;
+    expect(observationEntries(b).find((e) => e.resource.id === 'obs-0-pf-ratio')!.resource.derivedFrom).toEqual([{ reference: url('obs-0-pao2') }, { reference: url('obs-0-fio2') }]);
   });
 
   it('carried ventilator FiO2: coded as a ventilator setting, stated once, and the later P/F points back at it', () => {
@@ -557,8 +557,8 @@ describe('FHIR Observations worked out by hand', () => {
       ['obs-0-peep', '20077-4', 'Positive end expiratory pressure setting Ventilator', 10, 'cm[H2O]', '2030-01-01T08:00:00Z'],
     ], '03 settings');
     const b = bundle('03-carried');
-    const url = (id: string) => b.entry!.find((e) => e.resource.id === id)!.fullUrl;
-    expect(b.entry!.find((e) => e.resource.id === 'obs-1-pf-ratio')!.resource.derivedFrom).toEqual([{ reference: url('obs-1-pao2') }, { reference: url('obs-0-fio2') }]);
+    const url = (id: string) => observationEntries(b).find((e) => e.resource.id === id)!.fullUrl;
+    expect(observationEntries(b).find((e) => e.resource.id === 'obs-1-pf-ratio')!.resource.derivedFrom).toEqual([{ reference: url('obs-1-pao2') }, { reference: url('obs-0-fio2') }]);
   });
 
   it('room air: the P/F from the PaO2 alone (0.21 is no Observation)', () => {
@@ -653,9 +653,9 @@ describe('FHIR Observations worked out by hand', () => {
       ['obs-2-hco3-serum', '2028-9', 'Carbon dioxide, total [Moles/volume] in Serum or Plasma', 25, 'mmol/L', '2030-01-01T11:00:00Z'],
     ], '21');
     const b = bundle('21-sampling-fio2');
-    const url = (id: string) => b.entry!.find((e) => e.resource.id === id)!.fullUrl;
+    const url = (id: string) => observationEntries(b).find((e) => e.resource.id === id)!.fullUrl;
     // The P/F used the sampling FiO2 (0.45), and says so.
-    expect(b.entry!.find((e) => e.resource.id === 'obs-0-pf-ratio')!.resource.derivedFrom).toEqual([{ reference: url('obs-0-pao2') }, { reference: url('obs-0-fio2') }]);
+    expect(observationEntries(b).find((e) => e.resource.id === 'obs-0-pf-ratio')!.resource.derivedFrom).toEqual([{ reference: url('obs-0-pao2') }, { reference: url('obs-0-fio2') }]);
   });
 
   it('cardiac output and an inspiratory flow setting; a measured mean airway pressure', () => {

@@ -11,7 +11,7 @@ import { join } from 'node:path';
 import { UcumLhcUtils } from '@lhncbc/ucum-lhc';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { checkNote, type NoteResult } from '../../server/src/core/check-note';
-import { jsonlRecords, toFhirBundle, type FhirBundle, type FhirOptions } from '../../server/src/core/export';
+import { bundleObservations, jsonlRecords, observationEntries, toFhirBundle, type FhirBundle, type FhirOptions } from '../../server/src/core/export';
 import { NOTE_IDENTIFIER_SYSTEM, REDACTED_NOTE_IDENTIFIER_SYSTEM } from '../../server/src/core/export/fhir';
 import { run } from '../../server/src/cli/main';
 import { memoryIo } from '../helpers/memory-io';
@@ -83,7 +83,7 @@ describe('which note a Bundle came from', () => {
     const result = checked('@ day 1 08:00  handover\u00a0done\u0007\nvitals hr 90');
     const bundle = toFhirBundle('ward\u3000a\u0001.pneu', result, noAnchor);
     expect(bundle.identifier.value).toBe('ward\\u{3000}a\\x01.pneu');
-    expect(bundle.entry?.[0]?.resource.note?.[0]?.text).toBe('Pneumark timepoint 0 (day 1 08:00): handover\\u{00A0}done\\x07');
+    expect(bundleObservations(bundle)[0]?.note?.[0]?.text).toBe('Pneumark timepoint 0 (day 1 08:00): handover\\u{00A0}done\\x07');
     expect(validator.validate(bundle, true)).toEqual([]);
     // A lone surrogate is no Unicode character: escaped too; a pair (an emoji) stays.
     const lone = toFhirBundle('a\ud800b\u{1f600}.pneu', result, noAnchor);
@@ -121,7 +121,7 @@ describe('every note of samples/ and tests/fixtures/, as a consumer reads it', (
   it('every Observation: status final, categories of the HL7 code system with a display, codings with a system, a code and a display, code.text', () => {
     const categories = new Set<string>();
     for (const { path, result } of notes) {
-      for (const { resource: o } of toFhirBundle(path, result, withAnchor).entry ?? []) {
+      for (const o of bundleObservations(toFhirBundle(path, result, withAnchor))) {
         expect(o.status).toBe('final');
         expect(o.code.text, `${path} ${o.id}`).toBeTruthy();
         for (const c of o.category ?? []) {
@@ -144,7 +144,7 @@ describe('every note of samples/ and tests/fixtures/, as a consumer reads it', (
   it('every quantity: system UCUM, a code that UCUM reads as valid, a number', () => {
     const codes = new Set<string>();
     for (const { path, result } of notes) {
-      for (const { resource: o } of toFhirBundle(path, result, noAnchor).entry ?? []) {
+      for (const o of bundleObservations(toFhirBundle(path, result, noAnchor))) {
         const quantities = [o.valueQuantity, ...(o.component ?? []).map((c) => c.valueQuantity)].filter((q) => q !== undefined);
         expect(quantities.length, `${path} ${o.id}`).toBeGreaterThan(0);
         for (const q of quantities) {
@@ -169,7 +169,7 @@ describe('every note of samples/ and tests/fixtures/, as a consumer reads it', (
       expect(new Set(entries.map((e) => e.resource.id)).size, path).toBe(entries.length);
       for (const e of entries) {
         expect(e.fullUrl).toMatch(/^urn:uuid:[0-9a-f]{8}-[0-9a-f]{4}-8[0-9a-f]{3}-[89ab][0-9a-f]{3}-[0-9a-f]{12}$/);
-        for (const d of e.resource.derivedFrom ?? []) {
+        for (const d of e.resource.resourceType === 'Observation' ? e.resource.derivedFrom ?? [] : []) {
           references++;
           expect(urls.has(d.reference), `${path} ${e.resource.id} → ${d.reference}`).toBe(true);
           expect(d.reference).not.toBe(e.fullUrl);
@@ -182,7 +182,7 @@ describe('every note of samples/ and tests/fixtures/, as a consumer reads it', (
   it('every P/F ratio is derived from the PaO2 Observation of its own timepoint, and from an FiO2 Observation unless on room air', () => {
     let ratios = 0;
     for (const { path, result } of notes) {
-      const entries = toFhirBundle(path, result, noAnchor).entry ?? [];
+      const entries = observationEntries(toFhirBundle(path, result, noAnchor));
       const idOf = new Map(entries.map((e) => [e.fullUrl, e.resource.id]));
       for (const { resource: o } of entries) {
         if (!o.id.endsWith('-pf-ratio')) continue;

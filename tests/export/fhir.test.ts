@@ -3,11 +3,11 @@
 import { readFileSync } from 'node:fs';
 import { UcumLhcUtils } from '@lhncbc/ucum-lhc';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { anchorProblem, observationCategory, toFhirBundle, ucumCode, type FhirBundle, type FhirObservation, type FhirOptions } from '../../server/src/core/export';
 import { fhirLoinc, isObservedField, loincMismatch } from '../../server/src/core/export/fhir';
 import type { SectionId } from '../../server/src/core/fields/sections';
 import { FIELDS, fieldById, loincCodesOf, type FieldDef } from '../../server/src/core/fields/registry';
 import { checked, fhirValidator, samples } from './helpers';
+import { anchorProblem, bundleObservations, type FhirBundle, type FhirObservation, type FhirOptions, observationCategory, observationEntries, toFhirBundle, ucumCode } from '../../server/src/core/export';
 
 const ANCHOR = '2000-01-01T00:00:00+01:00';
 const withAnchor: FhirOptions = { anchor: ANCHOR, redactProse: false, shiftDays: 0 };
@@ -19,7 +19,7 @@ beforeAll(() => {
 });
 
 function observations(bundle: FhirBundle): FhirObservation[] {
-  return (bundle.entry ?? []).map((e) => e.resource);
+  return bundleObservations(bundle);
 }
 
 function byId(bundle: FhirBundle, id: string): FhirObservation | undefined {
@@ -125,13 +125,13 @@ describe('observations', () => {
     expect(pf.valueQuantity?.value).toBeCloseTo(82 / 0.6, 9);
     expect(pf.valueQuantity?.code).toBe('mm[Hg]');
     // Timepoint 2 uses the FiO2 carried from timepoint 1: the reference points there.
-    const urlOf = (id: string) => bundle.entry?.find((e) => e.resource.id === id)?.fullUrl;
+    const urlOf = (id: string) => observationEntries(bundle).find((e) => e.resource.id === id)?.fullUrl;
     expect(pf.derivedFrom).toEqual([{ reference: urlOf('obs-2-pao2') }, { reference: urlOf('obs-1-fio2') }]);
   });
 
   it('P/F ratio on room air: derived from the PaO2 alone, since the FiO2 of 0.21 the device implies is no Observation; README says so', () => {
     const b = toFhirBundle('a.pneu', checked('@ 08:00\noxygen room air\nabg 7.40/40/84/24'), noAnchor);
-    const urlOf = (id: string) => b.entry?.find((e) => e.resource.id === id)?.fullUrl;
+    const urlOf = (id: string) => observationEntries(b).find((e) => e.resource.id === id)?.fullUrl;
     expect(byId(b, 'obs-0-pf-ratio')?.valueQuantity?.value).toBe(400); // 84 / 0.21
     expect(byId(b, 'obs-0-pf-ratio')?.derivedFrom).toEqual([{ reference: urlOf('obs-0-pao2') }]);
     expect(byId(b, 'obs-0-fio2')).toBeUndefined();
@@ -139,12 +139,14 @@ describe('observations', () => {
     expect(readme.includes('on room air, whose FiO2 of 0.21 is implied and no Observation, its PaO2 alone'), 'README.md says so').toBe(true);
   });
 
-  it('no other derived value, no subject, no identifier', () => {
+  it('no other derived value, no identifier; the subject is the Bundle\'s anonymous Patient, its last entry', () => {
     const codes = new Set(observations(bundle).map((o) => o.code.coding?.[0]?.code).filter((c) => c !== undefined));
     const registry = new Set(FIELDS.flatMap((f) => loincCodesOf(f).map((l) => l.code)));
     for (const code of codes) expect(registry.has(code!) || code === '50984-4', code).toBe(true);
+    const patient = bundle.entry!.at(-1)!;
+    expect(patient.resource).toEqual({ resourceType: 'Patient', id: 'patient' });
     for (const o of observations(bundle)) {
-      expect(o).not.toHaveProperty('subject');
+      expect(o.subject).toEqual({ reference: patient.fullUrl });
       expect(o).not.toHaveProperty('identifier');
     }
   });
@@ -180,7 +182,7 @@ describe('observations', () => {
     expect(value('obs-0-na-abg')).toBe(139);
     expect(value('obs-0-etco2-vitals')).toBe(30);
     // Timepoint 1's P/F uses the ventilator's FiO2 carried from timepoint 0 (90 / 0.4), not the gas's 0.5.
-    const urlOf = (id: string) => b.entry?.find((e) => e.resource.id === id)?.fullUrl;
+    const urlOf = (id: string) => observationEntries(b).find((e) => e.resource.id === id)?.fullUrl;
     const pf = byId(b, 'obs-1-pf-ratio')!;
     expect(pf.valueQuantity?.value).toBeCloseTo(90 / 0.4, 9);
     expect(pf.derivedFrom).toEqual([{ reference: urlOf('obs-1-pao2') }, { reference: urlOf('obs-0-fio2-vent') }]);

@@ -4,8 +4,8 @@
 // 0.21 of room air, which nobody measured or set: it is implied by the device.
 import { parse } from 'csv-parse/sync';
 import { describe, expect, it } from 'vitest';
-import { csvCells, csvHeader, exportColumns, timepointCells, toFhirBundle, toJsonl } from '../../server/src/core/export';
 import { checked } from './helpers';
+import { csvCells, csvHeader, exportColumns, observationEntries, timepointCells, toFhirBundle, toJsonl } from '../../server/src/core/export';
 
 const plain = { redactProse: false, shiftDays: 0 } as const;
 
@@ -50,8 +50,8 @@ describe('FiO2 on room air in the exports', () => {
     const bundle = toFhirBundle('a.pneu', result, plain);
     const ids = (bundle.entry ?? []).map((e) => e.resource.id);
     expect(ids.filter((id) => /-fio2/.test(id))).toEqual(['obs-4-fio2']);
-    const pf0 = bundle.entry?.find((e) => e.resource.id === 'obs-0-pf-ratio')?.resource;
-    const pao2 = bundle.entry?.find((e) => e.resource.id === 'obs-0-pao2');
+    const pf0 = observationEntries(bundle).find((e) => e.resource.id === 'obs-0-pf-ratio')?.resource;
+    const pao2 = observationEntries(bundle).find((e) => e.resource.id === 'obs-0-pao2');
     expect(pf0?.derivedFrom).toEqual([{ reference: pao2?.fullUrl }]);
   });
 });

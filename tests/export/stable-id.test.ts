@@ -71,10 +71,10 @@ describe('FHIR ids of a re-exported note after one value is corrected', () => {
     expect(b.bundle).toBe(a.bundle);
   });
 
-  it('with --redact: only the corrected Observation gets a new id; the Bundle, made from what it holds, a new one', () => {
+  it('with --redact: only the corrected Observation gets a new id; the Bundle, made from what it holds, a new one, and so its Patient', () => {
     const a = redactedIds(before);
     const b = redactedIds(after);
-    expect(changed(a.urls, b.urls)).toEqual(['obs-0-hr']);
+    expect(changed(a.urls, b.urls)).toEqual(['obs-0-hr', 'patient']);
     expect(b.bundle).not.toBe(a.bundle);
     // The same note again: the same ids.
     expect(redactedIds(before)).toEqual(a);
@@ -83,7 +83,8 @@ describe('FHIR ids of a re-exported note after one value is corrected', () => {
   it('a value a derived one rests on changes that one too (a PaO2 and its P/F), and nothing else', () => {
     const a = redactedIds(before);
     const b = redactedIds(before.replace('7.38/42/71/24', '7.38/42/77/24'));
-    expect(changed(a.urls, b.urls).sort()).toEqual(['obs-0-pao2', 'obs-0-pf-ratio']);
+    // The Patient's fullUrl is made from the Bundle's id, which a redacted export makes from what it holds.
+    expect(changed(a.urls, b.urls).sort()).toEqual(['obs-0-pao2', 'obs-0-pf-ratio', 'patient']);
   });
 
   it('with --redact, an id holds no hash of anything the export does not write: a relabelled timepoint (labels are left out) keeps its ids', () => {

@@ -2,7 +2,7 @@
 // to the CSV row and the FHIR bundle.
 import { parse } from 'csv-parse/sync';
 import { checkNote } from '../../server/src/core/check-note';
-import { csvCells, csvHeader, exportColumns, timepointCells, toFhirBundle } from '../../server/src/core/export';
+import { bundleObservations, csvCells, csvHeader, exportColumns, timepointCells, toFhirBundle } from '../../server/src/core/export';
 
 const plain = { redactProse: false, shiftDays: 0 } as const;
 
@@ -16,5 +16,5 @@ export function firstCsvRow(text: string): Record<string, string> {
 /** The FiO2 values of the note's FHIR bundle, in order. */
 export function fhirFio2Values(text: string): (number | undefined)[] {
   const bundle = toFhirBundle('a.pneu', checkNote(text, {}, { keepDerivations: true }), plain);
-  return (bundle.entry ?? []).map((e) => e.resource).filter((o) => /^obs-\d+-fio2/.test(o.id)).map((o) => o.valueQuantity?.value);
+  return bundleObservations(bundle).filter((o) => /^obs-\d+-fio2/.test(o.id)).map((o) => o.valueQuantity?.value);
 }

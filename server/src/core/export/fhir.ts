@@ -50,8 +50,19 @@
  * Every Observation has `status: final` and a `valueQuantity` in the field's canonical unit
  * (gases in mmHg, whatever the note wrote; but the age in the unit it was written in: years `a`,
  * months `mo`, weeks `wk`, days `d`), to 12 significant digits (precision.ts), with the UCUM code of the unit
- * registry (`system` http://unitsofmeasure.org). Observations have no subject, performer or
- * identifier: notes carry none.
+ * registry (`system` http://unitsofmeasure.org). Observations have no performer or identifier:
+ * notes carry none.
+ *
+ * Subject: FHIR R4's vital-signs profile, which R4 applies to every Observation with one of its
+ * codes (`VITAL_SIGN_LOINC`), asks for one patient in `subject`. Notes name nobody, so each Bundle
+ * holds one anonymous Patient, its last entry: `id` `patient` and nothing else (no name,
+ * identifier, birth date or sex), and every Observation of the Bundle (not only the vital signs)
+ * names it in `subject` by its fullUrl. Its fullUrl is made from the Bundle's id, so it is unique to
+ * the note as that is. A Bundle with no Observation has no Patient. An Observation with a code of
+ * that list is in the vital-signs category as well as its field's (an arterial SaO2: laboratory
+ * and vital-signs), since the profile asks for that category. Their units are of the profile's
+ * units (ValueSet ucum-vitals-common: /min, %, Cel, mm[Hg], cm, kg), which
+ * tests/export/fhir-vital-signs.test.ts checks.
  *
  * The Bundle: `type` collection (a set of resources to be read, not a transaction for a server to
  * run), no `timestamp` (the time of the export would make every run's output differ; the same note
@@ -95,14 +106,20 @@
  * from an implicit first timepoint) gets no effective time.
  * Without an anchor no effective time is written, since a relative time is not a FHIR dateTime;
  * each Observation then says in `note` which timepoint (and relative day and clock time) it
- * belongs to. With redactProse that note leaves out the timepoint's label.
+ * belongs to. With redactProse that note leaves out the timepoint's label. Where no date is
+ * written (no anchor, a header value, a timepoint whose time is unknown), `_effectiveDateTime`
+ * holds FHIR's data-absent-reason extension with the code `unknown` (the vital-signs profile asks
+ * for an effective time, or the reason there is none): the note gives no date. Not `masked`:
+ * `--redact` withholds no date (an anchor is written with it as without).
  *
  * Ids: a resource's `id` is `obs-<timepoint>-<field>` (`obs-header-<field>` for header values;
  * `_` becomes `-`, which FHIR ids do not allow) for the value in force, and
  * `obs-<timepoint>-<field>-<section>` for the same field stated in another section there; its `fullUrl` is `urn:uuid:` with a UUID-shaped
  * id derived from the note's key (its path, or its pseudonym in a redacted export) and the
  * Observation as written (its JSON: id, codes, value, unit, time, note, and the fullUrls it is
- * derived from) (stable-id.ts): the same on every run, and kept by every Observation a correction
+ * derived from; not its `subject` nor `_effectiveDateTime`, which follow from the note's key and
+ * from the absence of a date: the fullUrls are those written before Observations had them)
+ * (stable-id.ts): the same on every run, and kept by every Observation a correction
  * elsewhere in the note leaves as it was, while a corrected value (and a P/F made from it) gets a
  * new one. The Bundle's id is made from the note's key alone, or with `bundleIdFromEntries` (a
  * redacted export, whose key is only a place in the run) from the key and every entry's fullUrl.
@@ -120,7 +137,7 @@ import { convert, unitById } from '../fields/units';
 import type { SectionId } from '../fields/sections';
 import { assertExportOptions, writtenLabel } from './columns';
 import { exportedNumber } from './precision';
-import { stableHex128, StableIds } from './stable-id';
+import { stableHex128, stableUuid, StableIds } from './stable-id';
 import { unitForPeople } from './units';
 
 export interface FhirOptions {
@@ -173,23 +190,54 @@ export interface FhirObservationComponent {
   readonly valueQuantity: FhirQuantity;
 }
 
+/** A reference to another entry of the Bundle, by its fullUrl. */
+export interface FhirReference {
+  readonly reference: string;
+}
+
+/** The primitive's extension saying why it has no value (FHIR's data-absent-reason). */
+export interface FhirAbsentPrimitive {
+  readonly extension: readonly { readonly url: string; readonly valueCode: 'unknown' }[];
+}
+
 export interface FhirObservation {
   readonly resourceType: 'Observation';
   readonly id: string;
   readonly status: 'final';
   readonly category?: readonly FhirCodeableConcept[];
   readonly code: FhirCodeableConcept;
+  /** The Bundle's Patient (`FhirPatient`): the same reference in every Observation of the Bundle. */
+  readonly subject: FhirReference;
+  /** When the export knows the date (an anchor, a timepoint with a known day); else `_effectiveDateTime`. */
   readonly effectiveDateTime?: string;
+  /** The data-absent-reason `unknown` where the note gives no date (see the header comment). */
+  readonly _effectiveDateTime?: FhirAbsentPrimitive;
   readonly valueQuantity?: FhirQuantity;
   readonly derivedFrom?: readonly { readonly reference: string }[];
   readonly note?: readonly { readonly text: string }[];
   readonly component?: readonly FhirObservationComponent[];
 }
 
-export interface FhirBundleEntry {
+/**
+ * The subject of a Bundle's Observations: an anonymous patient, its id alone (no name, identifier,
+ * birth date or anything else: notes carry no identity). One per Bundle, its last entry.
+ */
+export interface FhirPatient {
+  readonly resourceType: 'Patient';
+  readonly id: typeof PATIENT_ID;
+}
+
+export interface FhirObservationEntry {
   readonly fullUrl: string;
   readonly resource: FhirObservation;
 }
+
+export interface FhirPatientEntry {
+  readonly fullUrl: string;
+  readonly resource: FhirPatient;
+}
+
+export type FhirBundleEntry = FhirObservationEntry | FhirPatientEntry;
 
 export interface FhirIdentifier {
   readonly system: string;
@@ -202,14 +250,46 @@ export interface FhirBundle {
   /** Which note the Bundle came from: its path as the command names it, or its pseudonym (see the header comment). */
   readonly identifier: FhirIdentifier;
   readonly type: 'collection';
-  /** Left out when the note states nothing with a LOINC code (FHIR has no empty arrays). */
+  /**
+   * The Observations, then their Patient; left out when the note states nothing exported (FHIR has
+   * no empty arrays, and a Patient that nothing is about is not written).
+   */
   readonly entry?: readonly FhirBundleEntry[];
+}
+
+/** The Observations of a Bundle (every entry but its Patient), in order. */
+export function bundleObservations(bundle: FhirBundle): FhirObservation[] {
+  const out: FhirObservation[] = [];
+  for (const e of bundle.entry ?? []) if (e.resource.resourceType === 'Observation') out.push(e.resource);
+  return out;
+}
+
+/** The Observation entries of a Bundle (every entry but its Patient's), in order. */
+export function observationEntries(bundle: FhirBundle): FhirObservationEntry[] {
+  const out: FhirObservationEntry[] = [];
+  for (const e of bundle.entry ?? []) if (e.resource.resourceType === 'Observation') out.push(e as FhirObservationEntry);
+  return out;
 }
 
 const LOINC = 'http://loinc.org';
 const UCUM = 'http://unitsofmeasure.org';
 const CATEGORY_SYSTEM = 'http://terminology.hl7.org/CodeSystem/observation-category';
 const MINUTES_PER_DAY = 1440;
+
+/** The id of each Bundle's Patient (unique within its Bundle, as the Observations' ids are). */
+export const PATIENT_ID = 'patient';
+/** FHIR's extension for why an element has no value. */
+export const DATA_ABSENT_REASON_URL = 'http://hl7.org/fhir/StructureDefinition/data-absent-reason';
+/**
+ * The LOINC codes for which FHIR R4 says an Observation SHALL conform to its vital-signs profile
+ * (the table of vital signs on R4's Observation page: from memory): such an Observation is in the
+ * vital-signs category whatever its field's category, since the profile asks for it (an arterial
+ * SaO2, 2708-6, is laboratory and vital-signs).
+ */
+export const VITAL_SIGN_LOINC: ReadonlySet<string> = new Set(['85353-1', '9279-1', '8867-4', '2708-6', '59408-5', '8310-5', '8302-2', '9843-4', '29463-7', '39156-5', '85354-9', '8480-6', '8462-4', '8478-0']);
+
+/** The effective time of an Observation whose date the export does not know: one object, shared. */
+const EFFECTIVE_UNKNOWN: FhirAbsentPrimitive = Object.freeze({ extension: Object.freeze([Object.freeze({ url: DATA_ABSENT_REASON_URL, valueCode: 'unknown' as const })]) });
 
 /**
  * The system of a Bundle's identifier when its value is the note's path, as the command names it
@@ -477,12 +557,28 @@ type ObservationParts = { -readonly [K in keyof FhirObservation]?: FhirObservati
  * objects made for the purpose, which costs more than the rest of the Observation; the order of
  * the members is that of the JSON.
  */
-function observationStart(id: string, category: ObservationCategory | null, code: FhirCodeableConcept, place: Place): ObservationParts {
+function observationStart(id: string, category: ObservationCategory | null, code: FhirCodeableConcept, place: Place, vitalSign = false): ObservationParts {
   const observation: ObservationParts = { resourceType: 'Observation', id, status: 'final' };
-  if (category) observation.category = [{ coding: [{ system: CATEGORY_SYSTEM, code: category, display: CATEGORY_DISPLAY[category] }] }];
+  if (category) observation.category = vitalSign && category !== 'vital-signs' ? [categoryConcept(category), categoryConcept('vital-signs')] : [categoryConcept(category)];
+  else if (vitalSign) observation.category = [categoryConcept('vital-signs')];
   observation.code = code;
+  observation.subject = place.subject;
   if (place.effective) observation.effectiveDateTime = place.effective;
+  else observation._effectiveDateTime = EFFECTIVE_UNKNOWN;
   return observation;
+}
+
+function categoryConcept(category: ObservationCategory): FhirCodeableConcept {
+  return { coding: [{ system: CATEGORY_SYSTEM, code: category, display: CATEGORY_DISPLAY[category] }] };
+}
+
+/**
+ * What the fullUrl of an Observation is made from: its JSON but its subject and the reason for a
+ * missing effective time, which follow from the note's key and from the absence of a date, both in
+ * what the fullUrl is made of already (so the fullUrls are those written before Observations had them).
+ */
+function identifyingMember(key: string, value: unknown): unknown {
+  return key === 'subject' || key === '_effectiveDateTime' ? undefined : value;
 }
 
 /** The `id` of an Observation: `obs-<timepoint>-<what>`, with `-` for `_` (see the header comment). */
@@ -493,6 +589,8 @@ function observationId(place: Place, what: string): string {
 interface Place {
   /** `0`, `1`, … or `header`: the timepoint part of ids. */
   readonly key: string;
+  /** The Bundle's Patient, the one object shared by all its Observations (its fullUrl set last). */
+  readonly subject: FhirReference;
   readonly effective: string | null;
   readonly note: string;
   /** The oxygen device in force there (its flow means another thing on a high-flow device). */
@@ -528,7 +626,7 @@ function fieldObservation(field: FieldDef, input: InputValue, place: Place, what
     if (!q) return null;
   }
   const code: FhirCodeableConcept = loinc ? { coding: [{ system: LOINC, code: loinc.code, display: loinc.display }], text: field.label } : { text: field.label };
-  const observation = observationStart(observationId(place, what), observationCategory(field, reading), code, place);
+  const observation = observationStart(observationId(place, what), observationCategory(field, reading), code, place, loinc !== null && VITAL_SIGN_LOINC.has(loinc.code));
   const note = [{ text: place.note }];
   if (s && d) {
     observation.note = note;
@@ -554,14 +652,17 @@ export function toFhirBundle(path: string, result: NoteResult, options: FhirOpti
   if (typeof anchor === 'string') throw new RangeError(anchor);
 
   const noteKey = options.noteKey ?? path;
-  const entries: FhirBundleEntry[] = [];
+  const entries: FhirObservationEntry[] = [];
   /** fullUrl of each field Observation by the stated value it comes from (`statedKey`), for derivedFrom. */
   const fullUrls = new Map<string, string>();
   // Every fullUrl's text starts with the note's key: read once.
   const ids = new StableIds(`${noteKey}\u0000`);
+  // The Patient's fullUrl is made from the Bundle's id, known once every Observation is made: the
+  // one reference object all Observations share is filled in then.
+  const subject: { reference: string } = { reference: '' };
   const add = (place: Place, what: string, resource: FhirObservation): string => {
     // The Observation as written is in its id: one a correction leaves as it was keeps its id.
-    const fullUrl = `urn:uuid:${ids.uuid(`${place.key}\u0000${what}\u0000${JSON.stringify(resource)}`)}`;
+    const fullUrl = `urn:uuid:${ids.uuid(`${place.key}\u0000${what}\u0000${JSON.stringify(resource, identifyingMember)}`)}`;
     entries.push({ fullUrl, resource });
     return fullUrl;
   };
@@ -573,7 +674,7 @@ export function toFhirBundle(path: string, result: NoteResult, options: FhirOpti
   // timepoint has replaced the header's. Stated twice there, the later one (PN206).
   const header = new Map<string, InputValue>();
   for (const s of result.analysis.timeline.header) header.set(s.fieldId, { stated: s, origin: { kind: 'header', line: s.line, span: s.item.span } });
-  const headerPlace: Place = { key: 'header', effective: null, note: 'Pneumark note header (describes the patient for the whole note)', device: null, mode: null, support: null };
+  const headerPlace: Place = { key: 'header', subject, effective: null, note: 'Pneumark note header (describes the patient for the whole note)', device: null, mode: null, support: null };
   for (const field of FIELDS) {
     const input = header.get(field.id);
     const resource = input ? fieldObservation(field, input, headerPlace, field.id) : null;
@@ -593,7 +694,7 @@ export function toFhirBundle(path: string, result: NoteResult, options: FhirOpti
       return input?.stated.usable ? input.stated.word : null;
     };
     const device = word('device');
-    const place: Place = { key: String(tp.index), effective, note: timepointNote(tp, writtenLabel(result, tp), options), device, mode: word('mode'), support: noninvasiveSupport(device, tp.values) };
+    const place: Place = { key: String(tp.index), subject, effective, note: timepointNote(tp, writtenLabel(result, tp), options), device, mode: word('mode'), support: noninvasiveSupport(device, tp.values) };
     const repeated = repeatedFields(tp);
     for (const field of FIELDS) {
       const input = tp.values.get(field.id);
@@ -617,12 +718,20 @@ export function toFhirBundle(path: string, result: NoteResult, options: FhirOpti
     }
   }
 
+  const id = `pneumark-${stableHex128(options.bundleIdFromEntries ? `${noteKey}\u0000${entries.map((e) => e.fullUrl).join('\u0000')}` : noteKey).slice(0, 16)}`;
+  let all: FhirBundleEntry[] = entries;
+  if (entries.length) {
+    // The Patient's fullUrl, from the Bundle's id: unique to the note as the Bundle's id is (in a
+    // redacted export, made from the note's entries, not from its place in the run).
+    subject.reference = `urn:uuid:${stableUuid(`patient\u0000${id}`)}`;
+    all = [...entries, { fullUrl: subject.reference, resource: { resourceType: 'Patient', id: PATIENT_ID } }];
+  }
   return {
     resourceType: 'Bundle',
-    id: `pneumark-${stableHex128(options.bundleIdFromEntries ? `${noteKey}\u0000${entries.map((e) => e.fullUrl).join('\u0000')}` : noteKey).slice(0, 16)}`,
+    id,
     identifier: { system: options.pseudonymous ? REDACTED_NOTE_IDENTIFIER_SYSTEM : NOTE_IDENTIFIER_SYSTEM, value: fhirString(path) },
     type: 'collection',
-    ...(entries.length ? { entry: entries } : {}),
+    ...(all.length ? { entry: all } : {}),
   };
 }
 
