@@ -5,6 +5,8 @@
 import { describe, expect, it } from 'vitest';
 import { checkNote } from '../../server/src/core';
 import { changeSincePreviousGas, gasChangeText, hasArterialGas } from '../../server/src/core/gas-change';
+import { run } from '../../server/src/cli/main';
+import { memoryIo } from '../helpers/memory-io';
 
 const TWO_GASES = [
   'patient   age 60 y, sex male, height 175 cm',
@@ -79,5 +81,25 @@ describe('the change since the previous arterial gas', () => {
     const change = changeSincePreviousGas(result, 1);
     expect(change?.minutesBetween).toBeNull();
     expect(gasChangeText(change)).toMatch(/^from timepoint 1 \(start\): PaO2 down 10 mmHg \(was 90\)/);
+  });
+});
+
+describe('the change since the previous arterial gas, in `pneumark show`', () => {
+  it('writes a change line under the derived values of a later gas, none at the first, and explains it in the legend', async () => {
+    const io = memoryIo({ stdin: TWO_GASES, env: { NO_COLOR: '1' }, tty: false });
+    await run(['show', '-'], io);
+    const out = io.out();
+    const lines = out.split('\n');
+    const change = lines.filter((l) => l.startsWith('  change   from '));
+    expect(change).toEqual(['  change   from timepoint 1 (first gas, day 1 08:00), 6 h 30 min earlier: PaO2 down 20 mmHg (was 80) · PaCO2 down 4 mmHg (was 50) · pH up 0.04 (was 7.30) · P/F down 100 mmHg (was 200) · FiO2 up 0.20 (was 0.40) · PEEP up 2 cmH2O (was 8)']);
+    const at = lines.indexOf(change[0]!);
+    expect(lines[at - 1]).toMatch(/^ {2}derived /);
+    expect(lines.some((l) => /^ {2}change {2,}at an arterial gas, each value against the previous arterial gas.*never a carried one$/.test(l))).toBe(true);
+  });
+
+  it('writes no change line, and no legend entry, in a note with one arterial gas', async () => {
+    const io = memoryIo({ stdin: TWO_GASES.split('@ day 1 10:00')[0], env: { NO_COLOR: '1' }, tty: false });
+    await run(['show', '-'], io);
+    expect(io.out()).not.toMatch(/^ {2}change /m); // neither a change line nor the legend's entry
   });
 });
