@@ -74,7 +74,7 @@ export function changeSincePreviousGas(result: NoteResult, index: number): GasCh
     if (hasArterialGas(timepoints[i]!)) { earlier = timepoints[i]!; break; }
   }
   if (earlier === null) return null;
-  const gasUnit = trendGasUnit(result);
+  const gasUnit = gasUnitOf(result);
   const changes: ValueChange[] = [];
   for (const key of CHANGE_KEYS) {
     const before = valueAt(result, earlier, key, gasUnit);
@@ -85,6 +85,22 @@ export function changeSincePreviousGas(result: NoteResult, index: number): GasCh
   }
   const minutesBetween = tp.time.minutes !== null && earlier.time.minutes !== null ? tp.time.minutes - earlier.time.minutes : null;
   return { timepoint: tp.index, from: { timepoint: earlier.index, label: earlier.label, time: timeText(earlier.time) }, minutesBetween, changes };
+}
+
+/**
+ * `trendGasUnit`, kept per timeline (each analysis makes a new one): a tooltip of every P/F hint of
+ * a long note asks for it, and working it out reads every timepoint.
+ */
+const gasUnitByTimeline = new WeakMap<NoteResult['analysis']['timeline'], TrendGasUnit>();
+
+function gasUnitOf(result: NoteResult): TrendGasUnit {
+  const timeline = result.analysis.timeline;
+  let unit = gasUnitByTimeline.get(timeline);
+  if (unit === undefined) {
+    unit = trendGasUnit(result);
+    gasUnitByTimeline.set(timeline, unit);
+  }
+  return unit;
 }
 
 const NAMES: Readonly<Record<ChangeKey, string>> = { pao2: 'PaO2', paco2: 'PaCO2', ph: 'pH', pf_ratio: 'P/F', fio2: 'FiO2', peep: 'PEEP' };
