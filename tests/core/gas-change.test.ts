@@ -103,3 +103,16 @@ describe('the change since the previous arterial gas, in `pneumark show`', () =>
     expect(io.out()).not.toMatch(/^ {2}change /m); // neither a change line nor the legend's entry
   });
 });
+
+describe('the time between two gases', () => {
+  it('follows an offset from the previous timepoint, and is left out after `@ day N` alone (no time of day)', () => {
+    const offset = '@ day 1 08:00  first\nabg ph 7.40, pco2 40, po2 90\n@ +2h30  second\nabg ph 7.38, pco2 42, po2 80\n';
+    const change = changeSincePreviousGas(checkNote(offset), 1)!;
+    expect(change.minutesBetween).toBe(150);
+    expect(gasChangeText(change)).toMatch(/^from timepoint 1 \(first, day 1 08:00\), 2 h 30 min earlier: /);
+    const dayOnly = '@ day 1  first\nabg ph 7.40, pco2 40, po2 90\n@ day 2 09:00  second\nabg ph 7.38, pco2 42, po2 80\n';
+    const noTime = changeSincePreviousGas(checkNote(dayOnly), 1)!;
+    expect(noTime.minutesBetween).toBeNull();
+    expect(gasChangeText(noTime)).toMatch(/^from timepoint 1 \(first, day 1\): PaO2 down 10 mmHg \(was 90\)/);
+  });
+});
