@@ -63,6 +63,8 @@ time, its label and its line number) with
   SECTION    each line's values, normalised, with units (the other unit system in brackets)
   carried    values in force from an earlier timepoint, with the line they were stated on
   derived    values computed from those in force
+  change     at an arterial gas, each value against the previous arterial gas (PaO2, PaCO2, pH,
+             P/F, FiO2, PEEP): the difference and what it was; values carried in are not compared
   withheld   values a finding keeps back (e.g. P/F when PaO2 is above the alveolar PO2), with why
   n/a        values whose formula does not hold here, though their inputs are (e.g. the upper
              normal A–a gradient of a child), with why

@@ -1,4 +1,4 @@
-/** Derived values, missing inputs and interpretations under a timepoint. */
+/** Derived values, the change since the previous arterial gas, missing inputs and interpretations under a timepoint. */
 import type { Timepoint } from '../core/analysis/model';
 import { isGasPressureValue, type TimepointDerivation } from '../core/derive/model';
 import { derivedDef, withheldByReason } from '../core/derive/registry';
@@ -8,14 +8,20 @@ import { wordList } from '../core/util/format';
 import { kpaText, numberText } from '../core/service/derived-hover';
 import type { Paint } from './colour';
 import type { Legend } from './render-legend';
+import { visible } from './visible';
 
 /**
  * Where the timepoint's gas unit is kPa, gas pressures in kPa first: `P/F 28.2 kPa (212 mmHg)`.
  * The short names and marks written are noted in `legend`, which explains them once at the end.
  */
-export function renderDerived(tp: Timepoint, d: TimepointDerivation | undefined, p: Paint, legend: Legend): string[] {
+export function renderDerived(tp: Timepoint, d: TimepointDerivation | undefined, p: Paint, legend: Legend, change: string | null = null): string[] {
   if (!d) return [];
   const lines: string[] = [];
+  const changeLine = () => {
+    if (change === null) return;
+    legend.mark('change');
+    lines.push(`  ${p.green('change'.padEnd(8))} ${visible(change)}`);
+  };
   const kpa = showsKpa(tp);
   const shown = d.derived.filter((v) => v.id !== 'barometric' || v.inputs[0]?.origin.kind !== 'default');
   if (shown.length > 0) {
@@ -36,6 +42,8 @@ export function renderDerived(tp: Timepoint, d: TimepointDerivation | undefined,
     });
     lines.push(`  ${p.green('derived'.padEnd(8))} ${parts.join(p.dim(' · '))}`);
   }
+  // The change since the previous arterial gas, under the derived values.
+  changeLine();
   for (const m of d.missing) legend.value(m.id, kpa);
   // Values a finding withholds, named where they would have been, one line per reason.
   for (const n of d.notApplicable) if (n.withheldBy !== null) legend.value(n.id, kpa);

@@ -11,7 +11,7 @@ import { isGasPressureValue } from '../core/derive/model';
 import type { Paint } from './colour';
 
 /** The marks `show` writes beside values, lines and findings, in the order the legend lists them. */
-export const MARKS = ['carried', 'estimate', 'not-used', 'measured', 'unit-doubt', 'unreadable-line', 'start', 'finding'] as const;
+export const MARKS = ['carried', 'estimate', 'not-used', 'measured', 'unit-doubt', 'unreadable-line', 'start', 'change', 'finding'] as const;
 export type Mark = (typeof MARKS)[number];
 
 /** Each mark as it looks in the output, and what it means. */
@@ -23,6 +23,7 @@ const MARK_TEXT: Readonly<Record<Mark, readonly [string, string]>> = {
   'unit-doubt': ['… ?', 'a bare number whose unit is in doubt, as written; (if unit: …) is its value if meant in that unit'],
   'unreadable-line': ['? …', 'a line Pneumark could not read as a section line; the finding under it says why'],
   start: ['@ (start)', 'a timepoint without a time: what was measured before the note\'s first @ line'],
+  change: ['change', 'at an arterial gas, each value against the previous arterial gas: its difference (of the numbers as shown) and what it was; only values stated at both gases\' own timepoints, or derived from them alone, are compared, never a carried one'],
   finding: ['PNnnn (l:c)', 'a finding\'s check code and its line:column; `pneumark docs` explains every code'],
 };
 

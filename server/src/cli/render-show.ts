@@ -1,7 +1,7 @@
 /**
  * `pneumark show`: the note as the core understood it — each timepoint, its lines with
- * normalised values and units, values carried in from earlier timepoints, and findings
- * under the line they belong to; then a legend of the short names and marks used above (see
+ * normalised values and units, values carried in from earlier timepoints, derived values and,
+ * at an arterial gas, the change since the previous one, and findings under the line they belong to; then a legend of the short names and marks used above (see
  * render-legend.ts). Text from the note (the path, labels, prose, words, origins
  * and messages that quote the note) has its control characters made visible (see `visible`), so
  * that the only escape sequences written are the colours of `Paint`.
@@ -21,6 +21,7 @@ import { renderDerived } from './render-derived';
 import { gasAsReadingsShowIt } from '../core/derive/interpret';
 import type { Settings } from '../core/settings';
 import { Legend } from './render-legend';
+import { changeSincePreviousGas, gasChangeText } from '../core/gas-change';
 import { visible } from './visible';
 
 const READING_CODES = new Set(CHECKS.filter((c) => c.tags.includes('interpretation')).map((c) => c.code));
@@ -80,7 +81,7 @@ export function renderShow(path: string, result: NoteResult, p: Paint): string {
       legend.mark('finding');
     }
     const ending = tpByEnd.get(node.line);
-    if (ending) out.push(...renderTimepointFooter(ending, analysis.derivation(ending.index), result.settings, p, legend));
+    if (ending) out.push(...renderTimepointFooter(ending, analysis.derivation(ending.index), result.settings, p, legend, gasChangeText(changeSincePreviousGas(result, ending.index))));
   }
   out.push(...legend.lines(p));
   return out.join('\n');
@@ -130,7 +131,7 @@ export function ifLikelyUnit(s: StatedValue): string | null {
   return `if ${displayUnit(likely.id)}: ${inRead}${unit}`;
 }
 
-function renderTimepointFooter(tp: Timepoint, derivation: TimepointDerivation | undefined, settings: Settings, p: Paint, legend: Legend): string[] {
+function renderTimepointFooter(tp: Timepoint, derivation: TimepointDerivation | undefined, settings: Settings, p: Paint, legend: Legend, change: string | null): string[] {
   const carried = [...tp.values.values()].filter((v) => v.origin.kind === 'carried');
   const lines: string[] = [];
   const groups = new Map<string, string[]>();
@@ -146,7 +147,7 @@ function renderTimepointFooter(tp: Timepoint, derivation: TimepointDerivation | 
     groups.set(from, list);
   }
   for (const [from, values] of groups) lines.push(`  ${p.magenta('carried'.padEnd(8))} ${values.join(p.dim(' · '))} ${p.dim(`(${from})`)}`);
-  lines.push(...renderDerived(tp, derivation, p, legend));
+  lines.push(...renderDerived(tp, derivation, p, legend, change));
   return lines;
 }
 

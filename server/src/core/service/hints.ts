@@ -22,6 +22,7 @@ import { formatNumber } from '../util/format';
 import { pushAll } from '../util/lists';
 import { type Steps } from '../util/steps';
 import { derivedBody, derivedInKpa, termText } from './derived-hover';
+import { gasChangeParagraph } from './gas-change-hover';
 import { contentEnd, statesHeaderValues, lineAt } from './locate';
 import { cautionLine, escapeMarkdown, paragraphs } from './markdown';
 import { describeInputOrigin } from '../derive/context';
@@ -215,6 +216,7 @@ export function inlayHints(result: NoteResult, lines: LineSpan, options: HintOpt
       if (!entries || entries.length === 0) continue;
       const label = entries.map((e) => e.label).join(' · ');
       hints.push(new Hint(
+        result,
         position,
         first ? label : `· ${label}`,
         entries,
@@ -279,9 +281,11 @@ function hintNumber(d: DerivedValue, kpa: boolean, unit: boolean): string {
 class Hint implements InlayHintInfo {
   readonly paddingLeft = true;
   readonly #entries: readonly Entry[];
+  readonly #result: NoteResult;
   #tooltip: string | null = null;
 
   constructor(
+    result: NoteResult,
     readonly position: InlayHintInfo['position'],
     readonly label: string,
     entries: readonly Entry[],
@@ -289,14 +293,15 @@ class Hint implements InlayHintInfo {
     readonly derivedIds: string[],
   ) {
     this.#entries = entries;
+    this.#result = result;
   }
 
   get tooltipMarkdown(): string {
-    return (this.#tooltip ??= tooltip(this.#entries));
+    return (this.#tooltip ??= tooltip(this.#entries, this.#result));
   }
 }
 
-function tooltip(entries: readonly Entry[]): string {
+function tooltip(entries: readonly Entry[], result: NoteResult): string {
   const parts: string[] = [];
   for (const e of entries) {
     if (e.reading) parts.push(`**Acid–base reading**: ${escapeMarkdown(e.reading.text)}`);
@@ -306,7 +311,9 @@ function tooltip(entries: readonly Entry[]): string {
       const mark = carried.length > 0
         ? `${escapeMarkdown(CARRIED_MARK)} ${escapeMarkdown(d.short)} uses ${carried.length === 1 ? 'a value' : 'values'} carried forward from an earlier timepoint:\n${carried.map((t) => `- ${escapeMarkdown(termText(t, e.timepoint))} — ${escapeMarkdown(describeInputOrigin(t.origin))}`).join('\n')}`
         : null;
-      parts.push(paragraphs([derivedBody(d, { carriedSentence: mark === null, timepoint: e.timepoint }), mark]));
+      // Under the P/F ratio, its change since the previous arterial gas (worked out when the tooltip is read).
+      const change = d.id === 'pf_ratio' ? gasChangeParagraph(result, e.derivation.timepoint) : null;
+      parts.push(paragraphs([derivedBody(d, { carriedSentence: mark === null, timepoint: e.timepoint }), mark, change]));
     }
   }
   return paragraphs([parts.join('\n\n---\n\n'), cautionLine()]);

@@ -3,7 +3,8 @@
  * - a section word: what the section holds, whether it carries forward, its keys;
  * - a key, value or unit: the field, the value as read and in the other unit system, the unit
  *   it was read in (written or implied), where it came from, what it feeds, LOINC, carrying;
- * - a timepoint line: its time, the values carried into it, derived values and readings.
+ * - a timepoint line: its time, the values carried into it, derived values and readings;
+ * - a gas value of an abg line and a timepoint line: the change since the previous arterial gas.
  * Hovers with clinical content end with the caution line.
  */
 import type { NoteResult } from '../check-note';
@@ -25,6 +26,8 @@ import { unitsForSpelling } from '../fields/units';
 import { isBlank } from '../syntax/lexer';
 import { derivedValueText, otherSystemText } from './derived-hover';
 import { deviceParagraphs, unknownDeviceParagraphs } from './device-hover';
+import { gasChangeParagraph } from './gas-change-hover';
+import { CHANGE_KEYS } from '../gas-change';
 import { allStated, contentEnd, contentStart, isValidPosition, itemAt, lineAt, lineRange, showsKpaOnLine, spanContains, statedOf, timepointOfLine, type ItemHit } from './locate';
 import { cautionLine, code, describedMarkdown, escapeMarkdown, paragraphs } from './markdown';
 import type { HoverInfo } from './types';
@@ -99,7 +102,7 @@ function fieldMarkdown(result: NoteResult, node: SectionLine, hit: ItemHit): str
   if (stated) {
     parts.push(valueText(stated, showsKpaOnLine(result, stated.line)), modeFamilyText(stated));
     if (field.id === 'device') parts.push(...deviceParagraphs(field, stated, stated.item.value?.text ?? ''));
-    parts.push(unitText(result, stated, field), originText(result, stated), usableText(stated, field), notGivenText(result, stated), feedsText(result, stated));
+    parts.push(unitText(result, stated, field), originText(result, stated), usableText(stated, field), notGivenText(result, stated), feedsText(result, stated), gasValueChange(result, stated));
   } else if (hit.item.value) {
     parts.push(`${code(hit.item.value.text)} could not be read as ${escapeMarkdown(field.label)}.`);
   }
@@ -290,6 +293,15 @@ function feedsText(result: NoteResult, s: StatedValue): string | null {
   return parts.length > 0 ? parts.join('\n\n') : null;
 }
 
+const COMPARED: ReadonlySet<string> = new Set(CHANGE_KEYS);
+
+/** On an arterial gas line, for a value compared with the previous gas (PaO2, PaCO2, pH, a sampling FiO2): the change since it. */
+function gasValueChange(result: NoteResult, s: StatedValue): string | null {
+  if (s.section !== 'abg' || !COMPARED.has(s.fieldId)) return null;
+  const tp = timepointOfLine(result, s.line);
+  return tp ? gasChangeParagraph(result, tp.index) : null;
+}
+
 /**
  * The family of a ventilator mode (fields/modes.ts) and what it sets and measures, which decides
  * whether the other values of its vent lines are settings or measurements; null for another field.
@@ -417,6 +429,7 @@ function timepointHover(result: NoteResult, node: TimepointLine, start: number, 
       const missing = missingGroups(derivation);
       if (missing.length > 0) parts.push(`**Could be derived**\n${missing.map((m) => `- ${escapeMarkdown(m)}`).join('\n')}`);
     }
+    parts.push(gasChangeParagraph(result, tp.index));
   }
   parts.push(cautionLine());
   return { range: lineRange(node.line, start, end), markdown: paragraphs(parts) };

@@ -1,0 +1,187 @@
+/**
+ * The change since the previous arterial gas, for a reader at the bedside: for a timepoint with an
+ * arterial gas (a PaO2, a PaCO2 or a pH stated there), the nearest earlier timepoint with one, and
+ * for PaO2, PaCO2, pH, the P/F ratio and the FiO2 and PEEP of each gas, the earlier value and the
+ * difference, with the time between the two where both times are known.
+ *
+ * Only values stated at each gas's own timepoint are compared, and derived values computed from
+ * them alone (a P/F ratio whose FiO2 was carried from an earlier timepoint is left out, and so is a
+ * FiO2 or a PEEP carried in): a carried value is no new measurement. Arithmetic and description
+ * only ("up", "down", "unchanged"): no word judges a change, as no published threshold is applied.
+ *
+ * Worked out only when asked (a hover, `pneumark show`): checking a note never computes it.
+ * Gas pressures and P/F are given in the unit the note writes its gases in (`trendGasUnit`), as
+ * the trend view gives them, so that a change and the trend agree.
+ */
+import type { Timepoint } from './analysis/model';
+import type { NoteResult } from './check-note';
+import { derivedValueOf } from './derive/registry';
+import { fieldById } from './fields/registry';
+import { KPA_DECIMALS, kpaFromMmhg, timeText } from './present';
+import { trendGasUnit, type TrendGasUnit } from './trends';
+import { formatNumber } from './util/format';
+
+/** What is compared, in the order it is listed. */
+export const CHANGE_KEYS = ['pao2', 'paco2', 'ph', 'pf_ratio', 'fio2', 'peep'] as const;
+export type ChangeKey = (typeof CHANGE_KEYS)[number];
+
+/** The gas values whose statement at a timepoint makes it an arterial gas timepoint. */
+const GAS_KEYS = ['pao2', 'paco2', 'ph'] as const;
+
+export type ChangeUnit = TrendGasUnit | 'pH' | 'fraction' | 'cmH2O';
+
+/** One value at both gases, in the unit it is shown in (`unit`), with the decimals it is shown with. */
+export interface ValueChange {
+  readonly key: ChangeKey;
+  /** The short name a reader knows it by: `PaO2`, `P/F`, `FiO2`. */
+  readonly name: string;
+  readonly earlier: number;
+  readonly later: number;
+  /** `later − earlier` of the two numbers as shown (each rounded to `decimals`), so that the difference agrees with what is read. */
+  readonly difference: number;
+  readonly unit: ChangeUnit;
+  readonly decimals: number;
+}
+
+/** The change at one arterial gas timepoint since the previous one. */
+export interface GasChange {
+  /** The timepoint of the later gas (0-based, as `Timepoint.index`). */
+  readonly timepoint: number;
+  /** The earlier gas's timepoint: its index (0-based), label and time as written for people (`day 2 02:00`), null when unknown. */
+  readonly from: { readonly timepoint: number; readonly label: string; readonly time: string | null };
+  /** Minutes from the earlier gas to this one; null where either time is unknown. */
+  readonly minutesBetween: number | null;
+  /** The values stated (or derived from values stated) at both gases, in `CHANGE_KEYS` order; may be empty. */
+  readonly changes: readonly ValueChange[];
+}
+
+/** Whether a PaO2, a PaCO2 or a pH is stated, usable, at the timepoint. */
+export function hasArterialGas(tp: Timepoint): boolean {
+  for (const id of GAS_KEYS) if (statedHere(tp, id) !== null) return true;
+  return false;
+}
+
+/**
+ * The change at timepoint `index` since the nearest earlier arterial gas; null where the
+ * timepoint has no arterial gas or no earlier timepoint has one.
+ */
+export function changeSincePreviousGas(result: NoteResult, index: number): GasChange | null {
+  const timepoints = result.analysis.timeline.timepoints;
+  const tp = timepoints[index];
+  if (!tp || !hasArterialGas(tp)) return null;
+  let earlier: Timepoint | null = null;
+  for (let i = index - 1; i >= 0; i--) {
+    if (hasArterialGas(timepoints[i]!)) { earlier = timepoints[i]!; break; }
+  }
+  if (earlier === null) return null;
+  const gasUnit = gasUnitOf(result);
+  const changes: ValueChange[] = [];
+  for (const key of CHANGE_KEYS) {
+    const before = valueAt(result, earlier, key, gasUnit);
+    const after = valueAt(result, tp, key, gasUnit);
+    if (before === null || after === null) continue;
+    const difference = roundTo(roundTo(after.value, after.decimals) - roundTo(before.value, after.decimals), after.decimals);
+    changes.push({ key, name: NAMES[key], earlier: before.value, later: after.value, difference, unit: after.unit, decimals: after.decimals });
+  }
+  const minutesBetween = tp.time.minutes !== null && earlier.time.minutes !== null ? tp.time.minutes - earlier.time.minutes : null;
+  return { timepoint: tp.index, from: { timepoint: earlier.index, label: earlier.label, time: timeText(earlier.time) }, minutesBetween, changes };
+}
+
+/**
+ * `trendGasUnit`, kept per timeline (each analysis makes a new one): a tooltip of every P/F hint of
+ * a long note asks for it, and working it out reads every timepoint.
+ */
+const gasUnitByTimeline = new WeakMap<NoteResult['analysis']['timeline'], TrendGasUnit>();
+
+function gasUnitOf(result: NoteResult): TrendGasUnit {
+  const timeline = result.analysis.timeline;
+  let unit = gasUnitByTimeline.get(timeline);
+  if (unit === undefined) {
+    unit = trendGasUnit(result);
+    gasUnitByTimeline.set(timeline, unit);
+  }
+  return unit;
+}
+
+const NAMES: Readonly<Record<ChangeKey, string>> = { pao2: 'PaO2', paco2: 'PaCO2', ph: 'pH', pf_ratio: 'P/F', fio2: 'FiO2', peep: 'PEEP' };
+
+/** The number of a field stated at this timepoint (canonical unit), usable; null when none or when the value in force was carried or came from the header. */
+function statedHere(tp: Timepoint, id: string): number | null {
+  return tp.values.originOf(id) === 'here' ? tp.values.numberOf(id) : null;
+}
+
+interface Shown {
+  readonly value: number;
+  readonly unit: ChangeUnit;
+  readonly decimals: number;
+}
+
+function valueAt(result: NoteResult, tp: Timepoint, key: ChangeKey, gasUnit: TrendGasUnit): Shown | null {
+  if (key === 'pf_ratio') {
+    const pf = derivedValueOf(result.analysis.derivation(tp.index), 'pf_ratio');
+    // Derived from values stated here only (a FiO2 by default, room air, is no carried value).
+    if (!pf || pf.usesCarried) return null;
+    return gasPressure(pf.value, pf.decimals, gasUnit);
+  }
+  const value = statedHere(tp, key);
+  if (value === null) return null;
+  const decimals = fieldById(key)?.decimals ?? 0;
+  switch (key) {
+    case 'pao2':
+    case 'paco2': return gasPressure(value, decimals, gasUnit);
+    case 'ph': return { value, unit: 'pH', decimals };
+    case 'fio2': return { value, unit: 'fraction', decimals };
+    case 'peep': return { value, unit: 'cmH2O', decimals };
+  }
+}
+
+function gasPressure(mmHg: number, decimals: number, gasUnit: TrendGasUnit): Shown {
+  return gasUnit === 'kPa' ? { value: kpaFromMmhg(mmHg), unit: 'kPa', decimals: KPA_DECIMALS } : { value: mmHg, unit: 'mmHg', decimals };
+}
+
+function roundTo(value: number, decimals: number): number {
+  const scale = 10 ** decimals;
+  return Math.round(value * scale) / scale;
+}
+
+// ── words ───────────────────────────────────────────────────────────────
+
+/** `PaO2 down 6 mmHg (was 88)`, `pH up 0.02 (was 7.31)`, `PEEP unchanged (8 cmH2O)`. */
+export function valueChangeText(c: ValueChange): string {
+  const unit = c.unit === 'pH' || c.unit === 'fraction' ? '' : ` ${c.unit}`;
+  const earlier = formatNumber(c.earlier, c.decimals);
+  if (c.difference === 0) return `${c.name} unchanged (${earlier}${unit})`;
+  return `${c.name} ${c.difference > 0 ? 'up' : 'down'} ${formatNumber(Math.abs(c.difference), c.decimals)}${unit} (was ${earlier})`;
+}
+
+/** `timepoint 2 (PEEP raised, day 2 02:00)`: the earlier gas's timepoint, counted from 1, with its label and time where the note gives them. */
+export function fromText(change: GasChange): string {
+  const { label, time } = change.from;
+  // A timepoint without a label is labelled by its time as written (`day 1 08:00`): said once.
+  const sameAsTime = time !== null && (label === time || time.endsWith(` ${label}`));
+  const details = [sameAsTime ? '' : label, time].filter((t): t is string => t !== null && t !== '');
+  return `timepoint ${change.from.timepoint + 1}${details.length > 0 ? ` (${details.join(', ')})` : ''}`;
+}
+
+/** `6 h 30 min earlier`, `45 min earlier`; where the note's times go back, `40 min later in time`; null when unknown. */
+export function betweenText(change: GasChange): string | null {
+  const m = change.minutesBetween;
+  if (m === null || !Number.isFinite(m)) return null;
+  if (m === 0) return 'at the same time';
+  const whole = Math.round(Math.abs(m));
+  const hours = Math.floor(whole / 60);
+  const minutes = whole % 60;
+  const span = hours === 0 ? `${minutes} min` : minutes === 0 ? `${hours} h` : `${hours} h ${minutes} min`;
+  return m > 0 ? `${span} earlier` : `${span} later in time (the note's times go back)`;
+}
+
+/**
+ * The change in one line of plain text: `from timepoint 2 (PEEP raised, day 2 02:00), 6 h
+ * earlier: PaO2 down 6 mmHg (was 88) · pH up 0.02 (was 7.31)`; null when nothing is compared.
+ * The label is the note's own text: escape it for where it is shown.
+ */
+export function gasChangeText(change: GasChange | null): string | null {
+  if (change === null || change.changes.length === 0) return null;
+  const between = betweenText(change);
+  return `from ${fromText(change)}${between !== null ? `, ${between}` : ''}: ${change.changes.map(valueChangeText).join(' · ')}`;
+}
