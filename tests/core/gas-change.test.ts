@@ -45,11 +45,28 @@ describe('the change since the previous arterial gas', () => {
     expect(hasArterialGas(result.analysis.timeline.timepoints[1]!)).toBe(false);
   });
 
-  it('compares no carried value: a FiO2 and a PEEP carried in, and a P/F computed with the carried FiO2, are left out', () => {
+  it('compares the settings in force at each gas, carried ones marked *, and the P/F computed with them', () => {
+    // No vent line at the second gas: the FiO2 0.4 and PEEP 8 of the first are still in force, so
+    // the second P/F is 60 ÷ 0.40 = 150, marked as computed with a carried FiO2.
     const text = TWO_GASES.replace('vent      peep 10, fio2 0.6\n', '');
     const change = changeSincePreviousGas(checkNote(text), 2)!;
-    expect(change.changes.map((c) => c.key)).toEqual(['pao2', 'paco2', 'ph']);
-    expect(gasChangeText(change)).toBe('from timepoint 1 (first gas, day 1 08:00), 6 h 30 min earlier: PaO2 down 20 mmHg (was 80) · PaCO2 down 4 mmHg (was 50) · pH up 0.04 (was 7.30)');
+    expect(change.changes.map((c) => [c.key, c.earlier, c.later, c.carried])).toEqual([
+      ['pao2', 80, 60, false],
+      ['paco2', 50, 46, false],
+      ['ph', 7.3, 7.34, false],
+      ['pf_ratio', 200, 150, true],
+      ['fio2', 0.4, 0.4, true],
+      ['peep', 8, 8, true],
+    ]);
+    expect(gasChangeText(change)).toBe('from timepoint 1 (first gas, day 1 08:00), 6 h 30 min earlier: PaO2 down 20 mmHg (was 80) · PaCO2 down 4 mmHg (was 50) · pH up 0.04 (was 7.30) · P/F down 50 mmHg (was 200)* · FiO2 unchanged (0.40)* · PEEP unchanged (8 cmH2O)*');
+  });
+
+  it('compares no gas value carried in, nor a P/F computed with a PaO2 carried in', () => {
+    // The second gas states a pH alone: its PaO2 and PaCO2, if carried, are no new measurement.
+    const text = TWO_GASES.replace('abg       ph 7.34, pco2 46, po2 60', 'abg       ph 7.34');
+    const change = changeSincePreviousGas(checkNote(text), 2)!;
+    expect(change.changes.map((c) => c.key)).toEqual(['ph', 'fio2', 'peep']);
+    expect(change.changes.map((c) => c.carried)).toEqual([false, false, false]);
   });
 
   it('passes over a venous gas: only an arterial gas counts as the previous gas', () => {
@@ -94,7 +111,15 @@ describe('the change since the previous arterial gas, in `pneumark show`', () =>
     expect(change).toEqual(['  change   from timepoint 1 (first gas, day 1 08:00), 6 h 30 min earlier: PaO2 down 20 mmHg (was 80) · PaCO2 down 4 mmHg (was 50) · pH up 0.04 (was 7.30) · P/F down 100 mmHg (was 200) · FiO2 up 0.20 (was 0.40) · PEEP up 2 cmH2O (was 8)']);
     const at = lines.indexOf(change[0]!);
     expect(lines[at - 1]).toMatch(/^ {2}derived /);
-    expect(lines.some((l) => /^ {2}change {2,}at an arterial gas, each value against the previous arterial gas.*never a carried one$/.test(l))).toBe(true);
+    expect(lines.some((l) => /^ {2}change {2,}at an arterial gas, each value against the previous arterial gas.*never a carried one; FiO2, PEEP and P\/F as in force at each gas \(\* where a setting was carried\)$/.test(l))).toBe(true);
+  });
+
+  it('marks a carried setting on the change line with *, and the legend explains the mark there', async () => {
+    const io = memoryIo({ stdin: TWO_GASES.replace('vent      peep 10, fio2 0.6\n', ''), env: { NO_COLOR: '1' }, tty: false });
+    await run(['show', '-'], io);
+    const lines = io.out().split('\n');
+    expect(lines.filter((l) => l.startsWith('  change   from '))).toEqual(['  change   from timepoint 1 (first gas, day 1 08:00), 6 h 30 min earlier: PaO2 down 20 mmHg (was 80) · PaCO2 down 4 mmHg (was 50) · pH up 0.04 (was 7.30) · P/F down 50 mmHg (was 200)* · FiO2 unchanged (0.40)* · PEEP unchanged (8 cmH2O)*']);
+    expect(lines.some((l) => /^ {2}\* {2,}a derived value computed with a value carried from an earlier timepoint; on a change line, a setting carried in or a ratio computed with one$/.test(l))).toBe(true);
   });
 
   it('writes no change line, and no legend entry, in a note with one arterial gas', async () => {

@@ -1,4 +1,5 @@
 /** Derived values, the change since the previous arterial gas, missing inputs and interpretations under a timepoint. */
+import { gasChangeText, type GasChange } from '../core/gas-change';
 import type { Timepoint } from '../core/analysis/model';
 import { isGasPressureValue, type TimepointDerivation } from '../core/derive/model';
 import { derivedDef, withheldByReason } from '../core/derive/registry';
@@ -14,13 +15,15 @@ import { visible } from './visible';
  * Where the timepoint's gas unit is kPa, gas pressures in kPa first: `P/F 28.2 kPa (212 mmHg)`.
  * The short names and marks written are noted in `legend`, which explains them once at the end.
  */
-export function renderDerived(tp: Timepoint, d: TimepointDerivation | undefined, p: Paint, legend: Legend, change: string | null = null): string[] {
+export function renderDerived(tp: Timepoint, d: TimepointDerivation | undefined, p: Paint, legend: Legend, change: GasChange | null = null): string[] {
   if (!d) return [];
   const lines: string[] = [];
   const changeLine = () => {
-    if (change === null) return;
+    const text = gasChangeText(change);
+    if (text === null) return;
     legend.mark('change');
-    lines.push(`  ${p.green('change'.padEnd(8))} ${visible(change)}`);
+    if (change!.changes.some((c) => c.carried)) legend.mark('carried');
+    lines.push(`  ${p.green('change'.padEnd(8))} ${visible(text)}`);
   };
   const kpa = showsKpa(tp);
   const shown = d.derived.filter((v) => v.id !== 'barometric' || v.inputs[0]?.origin.kind !== 'default');

@@ -16,14 +16,14 @@ export type Mark = (typeof MARKS)[number];
 
 /** Each mark as it looks in the output, and what it means. */
 const MARK_TEXT: Readonly<Record<Mark, readonly [string, string]>> = {
-  carried: ['*', 'a derived value computed with a value carried from an earlier timepoint'],
+  carried: ['*', 'a derived value computed with a value carried from an earlier timepoint; on a change line, a setting carried in or a ratio computed with one'],
   estimate: ['est.', 'a derived value that is an estimate by a rough rule'],
   'not-used': ['(not used)', 'left out of every calculation; the finding under the line it was written on says why'],
   measured: ['(measured)', 'a value that is a setting under other modes, measured here (a tidal volume under PS, PC or NIV): in force at its timepoint only, not carried'],
   'unit-doubt': ['… ?', 'a bare number whose unit is in doubt, as written; (if unit: …) is its value if meant in that unit'],
   'unreadable-line': ['? …', 'a line Pneumark could not read as a section line; the finding under it says why'],
   start: ['@ (start)', 'a timepoint without a time: what was measured before the note\'s first @ line'],
-  change: ['change', 'at an arterial gas, each value against the previous arterial gas: its difference (of the numbers as shown) and what it was; only values stated at both gases\' own timepoints, or derived from them alone, are compared, never a carried one'],
+  change: ['change', 'at an arterial gas, each value against the previous arterial gas: its difference (of the numbers as shown) and what it was; PaO2, PaCO2 and pH only where stated at both gases\' own timepoints, never a carried one; FiO2, PEEP and P/F as in force at each gas (* where a setting was carried)'],
   finding: ['PNnnn (l:c)', 'a finding\'s check code and its line:column; `pneumark docs` explains every code'],
 };
 

@@ -21,7 +21,7 @@ import { renderDerived } from './render-derived';
 import { gasAsReadingsShowIt } from '../core/derive/interpret';
 import type { Settings } from '../core/settings';
 import { Legend } from './render-legend';
-import { changeSincePreviousGas, gasChangeText } from '../core/gas-change';
+import { changeSincePreviousGas, type GasChange } from '../core/gas-change';
 import { visible } from './visible';
 
 const READING_CODES = new Set(CHECKS.filter((c) => c.tags.includes('interpretation')).map((c) => c.code));
@@ -81,7 +81,7 @@ export function renderShow(path: string, result: NoteResult, p: Paint): string {
       legend.mark('finding');
     }
     const ending = tpByEnd.get(node.line);
-    if (ending) out.push(...renderTimepointFooter(ending, analysis.derivation(ending.index), result.settings, p, legend, gasChangeText(changeSincePreviousGas(result, ending.index))));
+    if (ending) out.push(...renderTimepointFooter(ending, analysis.derivation(ending.index), result.settings, p, legend, changeSincePreviousGas(result, ending.index)));
   }
   out.push(...legend.lines(p));
   return out.join('\n');
@@ -131,7 +131,7 @@ export function ifLikelyUnit(s: StatedValue): string | null {
   return `if ${displayUnit(likely.id)}: ${inRead}${unit}`;
 }
 
-function renderTimepointFooter(tp: Timepoint, derivation: TimepointDerivation | undefined, settings: Settings, p: Paint, legend: Legend, change: string | null): string[] {
+function renderTimepointFooter(tp: Timepoint, derivation: TimepointDerivation | undefined, settings: Settings, p: Paint, legend: Legend, change: GasChange | null): string[] {
   const carried = [...tp.values.values()].filter((v) => v.origin.kind === 'carried');
   const lines: string[] = [];
   const groups = new Map<string, string[]>();

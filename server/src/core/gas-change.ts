@@ -4,9 +4,12 @@
  * for PaO2, PaCO2, pH, the P/F ratio and the FiO2 and PEEP of each gas, the earlier value and the
  * difference, with the time between the two where both times are known.
  *
- * Only values stated at each gas's own timepoint are compared, and derived values computed from
- * them alone (a P/F ratio whose FiO2 was carried from an earlier timepoint is left out, and so is a
- * FiO2 or a PEEP carried in): a carried value is no new measurement. Arithmetic and description
+ * The gas values (PaO2, PaCO2, pH) are compared only where stated at each gas's own timepoint: a
+ * carried value is no new measurement. The settings each gas was taken on (FiO2, PEEP) are those in
+ * force there, stated or carried from an earlier timepoint, and the P/F ratio is the one computed
+ * there from a PaO2 stated there: a setting that was not restated is still the one the patient was on, and a ratio computed
+ * with it is the ratio the reader sees beside the gas. Such a value is marked `carried` (`*`, as a
+ * derived value computed with a carried value is in `pneumark show`). Arithmetic and description
  * only ("up", "down", "unchanged"): no word judges a change, as no published threshold is applied.
  *
  * Worked out only when asked (a hover, `pneumark show`): checking a note never computes it.
@@ -41,6 +44,8 @@ export interface ValueChange {
   readonly difference: number;
   readonly unit: ChangeUnit;
   readonly decimals: number;
+  /** Whether either value was carried from an earlier timepoint, or computed with one (a P/F ratio with a carried FiO2). */
+  readonly carried: boolean;
 }
 
 /** The change at one arterial gas timepoint since the previous one. */
@@ -51,7 +56,7 @@ export interface GasChange {
   readonly from: { readonly timepoint: number; readonly label: string; readonly time: string | null };
   /** Minutes from the earlier gas to this one; null where either time is unknown. */
   readonly minutesBetween: number | null;
-  /** The values stated (or derived from values stated) at both gases, in `CHANGE_KEYS` order; may be empty. */
+  /** The values at both gases (gas values stated there; settings and P/F in force there), in `CHANGE_KEYS` order; may be empty. */
   readonly changes: readonly ValueChange[];
 }
 
@@ -81,7 +86,7 @@ export function changeSincePreviousGas(result: NoteResult, index: number): GasCh
     const after = valueAt(result, tp, key, gasUnit);
     if (before === null || after === null) continue;
     const difference = roundTo(roundTo(after.value, after.decimals) - roundTo(before.value, after.decimals), after.decimals);
-    changes.push({ key, name: NAMES[key], earlier: before.value, later: after.value, difference, unit: after.unit, decimals: after.decimals });
+    changes.push({ key, name: NAMES[key], earlier: before.value, later: after.value, difference, unit: after.unit, decimals: after.decimals, carried: before.carried || after.carried });
   }
   const minutesBetween = tp.time.minutes !== null && earlier.time.minutes !== null ? tp.time.minutes - earlier.time.minutes : null;
   return { timepoint: tp.index, from: { timepoint: earlier.index, label: earlier.label, time: timeText(earlier.time) }, minutesBetween, changes };
@@ -114,29 +119,38 @@ interface Shown {
   readonly value: number;
   readonly unit: ChangeUnit;
   readonly decimals: number;
+  readonly carried: boolean;
+}
+
+/** The number of a setting in force at this timepoint (canonical unit), stated there or carried in; null when none is, or when it comes from the header. */
+function inForce(tp: Timepoint, id: string): { readonly value: number; readonly carried: boolean } | null {
+  const origin = tp.values.originOf(id);
+  if (origin !== 'here' && origin !== 'carried') return null;
+  const value = tp.values.numberOf(id);
+  return value === null ? null : { value, carried: origin === 'carried' };
 }
 
 function valueAt(result: NoteResult, tp: Timepoint, key: ChangeKey, gasUnit: TrendGasUnit): Shown | null {
   if (key === 'pf_ratio') {
     const pf = derivedValueOf(result.analysis.derivation(tp.index), 'pf_ratio');
-    // Derived from values stated here only (a FiO2 by default, room air, is no carried value).
-    if (!pf || pf.usesCarried) return null;
-    return gasPressure(pf.value, pf.decimals, gasUnit);
+    // The ratio computed here from a PaO2 measured here (never an older PaO2 carried in), marked
+    // where it used a carried setting (a FiO2 by default, room air, is none).
+    if (!pf || statedHere(tp, 'pao2') === null) return null;
+    return gasPressure(pf.value, pf.decimals, gasUnit, pf.usesCarried);
+  }
+  const decimals = fieldById(key)?.decimals ?? 0;
+  if (key === 'fio2' || key === 'peep') {
+    const setting = inForce(tp, key);
+    if (setting === null) return null;
+    return { value: setting.value, unit: key === 'fio2' ? 'fraction' : 'cmH2O', decimals, carried: setting.carried };
   }
   const value = statedHere(tp, key);
   if (value === null) return null;
-  const decimals = fieldById(key)?.decimals ?? 0;
-  switch (key) {
-    case 'pao2':
-    case 'paco2': return gasPressure(value, decimals, gasUnit);
-    case 'ph': return { value, unit: 'pH', decimals };
-    case 'fio2': return { value, unit: 'fraction', decimals };
-    case 'peep': return { value, unit: 'cmH2O', decimals };
-  }
+  return key === 'ph' ? { value, unit: 'pH', decimals, carried: false } : gasPressure(value, decimals, gasUnit, false);
 }
 
-function gasPressure(mmHg: number, decimals: number, gasUnit: TrendGasUnit): Shown {
-  return gasUnit === 'kPa' ? { value: kpaFromMmhg(mmHg), unit: 'kPa', decimals: KPA_DECIMALS } : { value: mmHg, unit: 'mmHg', decimals };
+function gasPressure(mmHg: number, decimals: number, gasUnit: TrendGasUnit, carried: boolean): Shown {
+  return gasUnit === 'kPa' ? { value: kpaFromMmhg(mmHg), unit: 'kPa', decimals: KPA_DECIMALS, carried } : { value: mmHg, unit: 'mmHg', decimals, carried };
 }
 
 function roundTo(value: number, decimals: number): number {
@@ -146,12 +160,16 @@ function roundTo(value: number, decimals: number): number {
 
 // ── words ───────────────────────────────────────────────────────────────
 
-/** `PaO2 down 6 mmHg (was 88)`, `pH up 0.02 (was 7.31)`, `PEEP unchanged (8 cmH2O)`. */
+/**
+ * `PaO2 down 6 mmHg (was 88)`, `pH up 0.02 (was 7.31)`, `PEEP unchanged (8 cmH2O)`; with a `*` at
+ * the end where a value was carried or computed with one (`FiO2 unchanged (0.60)*`).
+ */
 export function valueChangeText(c: ValueChange): string {
   const unit = c.unit === 'pH' || c.unit === 'fraction' ? '' : ` ${c.unit}`;
   const earlier = formatNumber(c.earlier, c.decimals);
-  if (c.difference === 0) return `${c.name} unchanged (${earlier}${unit})`;
-  return `${c.name} ${c.difference > 0 ? 'up' : 'down'} ${formatNumber(Math.abs(c.difference), c.decimals)}${unit} (was ${earlier})`;
+  const mark = c.carried ? '*' : '';
+  if (c.difference === 0) return `${c.name} unchanged (${earlier}${unit})${mark}`;
+  return `${c.name} ${c.difference > 0 ? 'up' : 'down'} ${formatNumber(Math.abs(c.difference), c.decimals)}${unit} (was ${earlier})${mark}`;
 }
 
 /** `timepoint 2 (PEEP raised, day 2 02:00)`: the earlier gas's timepoint, counted from 1, with its label and time where the note gives them. */

@@ -8,11 +8,14 @@ import { escapeMarkdown } from './markdown';
 
 /**
  * `**Since the previous arterial gas**: from timepoint 1 (…), 6 h earlier: PaO2 down 20 mmHg (was 80) · …`,
- * saying that carried values are not compared; null where the timepoint has no arterial gas, no
+ * saying that gas values are compared only where stated and settings as in force (a `*` marks one
+ * carried); null where the timepoint has no arterial gas, no
  * earlier one, or nothing stated at both to compare.
  */
 export function gasChangeParagraph(result: NoteResult, timepoint: number): string | null {
-  const text = gasChangeText(changeSincePreviousGas(result, timepoint));
+  const change = changeSincePreviousGas(result, timepoint);
+  const text = gasChangeText(change);
   if (text === null) return null;
-  return `**Since the previous arterial gas**: ${escapeMarkdown(text)}.  \n_Only values stated at each gas's own timepoint, or derived from them, are compared; a value carried from an earlier timepoint is not._`;
+  const carried = change!.changes.some((c) => c.carried) ? ' A value marked \\* is a setting carried from an earlier timepoint, or a ratio computed with one.' : '';
+  return `**Since the previous arterial gas**: ${escapeMarkdown(text)}.  \n_PaO2, PaCO2 and pH are compared only where stated at each gas's own timepoint; FiO2, PEEP and P/F as in force at each gas.${carried}_`;
 }
