@@ -5,35 +5,21 @@
 // the HL7 observation-category code system, codings with a system, a code and a display, quantities
 // whose code is valid UCUM, `derivedFrom` references that resolve inside the Bundle, `urn:uuid:`
 // fullUrls, and strings that the FHIR R4 JSON schema's pattern takes.
-import { mkdirSync, mkdtempSync, readdirSync, readFileSync, statSync, writeFileSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { UcumLhcUtils } from '@lhncbc/ucum-lhc';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { checkNote, type NoteResult } from '../../server/src/core/check-note';
+import { checkNote } from '../../server/src/core/check-note';
 import { bundleObservations, jsonlRecords, observationEntries, toFhirBundle, type FhirBundle, type FhirOptions } from '../../server/src/core/export';
 import { NOTE_IDENTIFIER_SYSTEM, REDACTED_NOTE_IDENTIFIER_SYSTEM } from '../../server/src/core/export/fhir';
 import { run } from '../../server/src/cli/main';
 import { memoryIo } from '../helpers/memory-io';
-import { checked, fhirValidator, samples } from './helpers';
+import { allNotes, checked, fhirValidator, samples } from './helpers';
 
 const noAnchor: FhirOptions = { redactProse: false, shiftDays: 0 };
 const withAnchor: FhirOptions = { anchor: '2000-01-01T00:00:00+01:00', redactProse: false, shiftDays: 0 };
 
-/** Every note of samples/ and tests/fixtures/ (and its folders), by path with forward slashes. */
-function allNotes(): { readonly path: string; readonly result: NoteResult }[] {
-  const out: { path: string; result: NoteResult }[] = [];
-  const walk = (dir: string): void => {
-    for (const name of readdirSync(dir).sort()) {
-      const path = `${dir}/${name}`;
-      if (statSync(path).isDirectory()) walk(path);
-      else if (name.endsWith('.pneu')) out.push({ path, result: checkNote(readFileSync(path, 'utf8')) });
-    }
-  };
-  walk('samples');
-  walk('tests/fixtures');
-  return out;
-}
 
 let validator: ReturnType<typeof fhirValidator>;
 let notes: ReturnType<typeof allNotes>;

@@ -26,11 +26,9 @@
 // [DAR] Where the note gives no date, the primitive carries the extension
 //      http://hl7.org/fhir/StructureDefinition/data-absent-reason with code `unknown` (FHIR R4
 //      extension data-absent-reason, value set data-absent-reason: from memory), and no value.
-import { readdirSync, readFileSync, statSync } from 'node:fs';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { checkNote, type NoteResult } from '../../server/src/core/check-note';
 import { toFhirBundle, type FhirOptions } from '../../server/src/core/export';
-import { checked } from './helpers';
+import { allNotes, checked } from './helpers';
 
 const noAnchor: FhirOptions = { redactProse: false, shiftDays: 0 };
 const withAnchor: FhirOptions = { anchor: '2000-01-01T00:00:00+01:00', redactProse: false, shiftDays: 0 };
@@ -51,19 +49,6 @@ const obj = (v: unknown): Json => (typeof v === 'object' && v !== null ? (v as J
 const list = (v: unknown): Json[] => (Array.isArray(v) ? v.map(obj) : []);
 const codesOf = (concept: unknown): string[] => list(obj(concept).coding).map((c) => String(c.code));
 
-function allNotes(): { readonly path: string; readonly result: NoteResult }[] {
-  const out: { path: string; result: NoteResult }[] = [];
-  const walk = (dir: string): void => {
-    for (const name of readdirSync(dir).sort()) {
-      const path = `${dir}/${name}`;
-      if (statSync(path).isDirectory()) walk(path);
-      else if (name.endsWith('.pneu')) out.push({ path, result: checkNote(readFileSync(path, 'utf8')) });
-    }
-  };
-  walk('samples');
-  walk('tests/fixtures');
-  return out;
-}
 
 let notes: ReturnType<typeof allNotes>;
 beforeAll(() => {

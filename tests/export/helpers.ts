@@ -2,7 +2,7 @@
  * Helpers of the export tests: the sample notes, golden files, and the two schema validators
  * (FHIR R4 through @asymmetrik/fhir-json-schema-validator, SARIF 2.1.0 through Ajv).
  */
-import { existsSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { existsSync, readdirSync, readFileSync, statSync, writeFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import Ajv from 'ajv';
 import addFormats from 'ajv-formats';
@@ -90,4 +90,19 @@ export function sarifValidator(): (data: unknown) => { valid: boolean; errors: u
     const valid = validate(data);
     return { valid, errors: validate.errors ? [...validate.errors] : [] };
   };
+}
+
+/** Every note of samples/ and tests/fixtures/ (and its folders), by path with forward slashes. */
+export function allNotes(): { readonly path: string; readonly result: NoteResult }[] {
+  const out: { path: string; result: NoteResult }[] = [];
+  const walk = (dir: string): void => {
+    for (const name of readdirSync(dir).sort()) {
+      const path = `${dir}/${name}`;
+      if (statSync(path).isDirectory()) walk(path);
+      else if (name.endsWith('.pneu')) out.push({ path, result: checkNote(readFileSync(path, 'utf8')) });
+    }
+  };
+  walk('samples');
+  walk('tests/fixtures');
+  return out;
 }
