@@ -424,7 +424,7 @@ describe('show\'s legend', () => {
     const text = await shown(['samples/icu-ventilated-lung-injury.pneu']);
     expect(text).toMatch(/Cstat 28 mL\/cmH2O\*/);
     expect(text.match(/carried from an earlier timepoint/g)).toHaveLength(1);
-    expect(legendOf(text).get('*')).toBe('a derived value computed with a value carried from an earlier timepoint');
+    expect(legendOf(text).get('*')).toBe('a derived value computed with a value carried from an earlier timepoint; on a change line, a setting carried in or a ratio computed with one');
   });
 
   it('explains (not used), a unit in doubt, an unreadable line and a finding\'s code and place when they appear', async () => {
