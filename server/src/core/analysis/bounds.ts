@@ -97,18 +97,11 @@ export function childSizeAt(field: FieldDef, ageYears: number | null): Bounds | 
   return ageYears! < INFANT_UNTIL_YEARS ? INFANT_HEIGHT : CHILD_HEIGHT;
 }
 
-/**
- * The usual bounds of a body size at an age (PN302), from `usual`, the field's own: a child's have no
- * usual minimum (an adult's, 120 cm and 25 kg, is none of a child's; common practice, no source),
- * but an infant's length starts at INFANT_LENGTH_MIN_CM; the usual maximum stays. `usual` itself
- * for an adult, for no age, and for any other field.
- */
-export function usualSizeAt(field: FieldDef, usual: Bounds | undefined, ageYears: number | null): Bounds | undefined {
-  const child = childSizeAt(field, ageYears);
-  if (child === null) return usual;
-  const min = child === INFANT_HEIGHT ? INFANT_LENGTH_MIN_CM : undefined;
-  if (usual?.max === undefined) return min === undefined ? {} : { min };
-  return min === undefined ? { max: usual.max } : { min, max: usual.max };
+/** `usual`'s maximum with `min` as its minimum (none where undefined): a child's usual bounds drop or replace an adult's minimum. */
+function keepingMax(usual: Bounds | undefined, min: number | undefined): Bounds {
+  const max = usual?.max;
+  if (max === undefined) return min === undefined ? {} : { min };
+  return min === undefined ? { max } : { min, max };
 }
 
 /**
@@ -136,18 +129,18 @@ function childWindowAt(field: FieldDef, ageYears: number | null): Bounds | null 
 /**
  * The usual bounds of a field for a patient under ADULT_FROM_YEARS, from `usual`, the bounds an
  * adult's value is read against (PN302), for a patient of `ageYears`: a body size keeps only its
- * usual maximum, with an infant's length from INFANT_LENGTH_MIN_CM (`usualSizeAt`), the inspiratory flow a child's minimum (CHILD_INSP_FLOW_MIN_L_PER_MIN), and a tidal volume read
+ * usual maximum, with an infant's length from INFANT_LENGTH_MIN_CM, the inspiratory flow a child's minimum (CHILD_INSP_FLOW_MIN_L_PER_MIN), and a tidal volume read
  * against no body size (`bodyKg` null: neither a weight nor a predicted body weight in force) has no
  * usual minimum, as a child's size runs from a preterm newborn's to an adult's (common practice,
  * no source); with a body size its minimum is per kg for a child as for an adult (`softBoundsAt`).
  */
 export function childUsualBounds(field: FieldDef, usual: Bounds | undefined, bodyKg: number | null, ageYears: number): Bounds | undefined {
-  if (isBodySize(field)) return usualSizeAt(field, usual, ageYears);
+  // A child's height and weight have no usual minimum (an adult's, 120 cm and 25 kg, is none of a
+  // child's; common practice, no source), but an infant's length starts at INFANT_LENGTH_MIN_CM.
+  if (isBodySize(field)) return keepingMax(usual, field.id === 'height' && ageYears < INFANT_UNTIL_YEARS ? INFANT_LENGTH_MIN_CM : undefined);
   if (usual === undefined) return usual;
-  if (field.id === 'insp_flow') return usual.max === undefined ? { min: CHILD_INSP_FLOW_MIN_L_PER_MIN } : { min: CHILD_INSP_FLOW_MIN_L_PER_MIN, max: usual.max };
-  if (field.id === 'vt' && (bodyKg === null || !(bodyKg > 0))) {
-    return usual.min === undefined ? usual : usual.max === undefined ? {} : { max: usual.max };
-  }
+  if (field.id === 'insp_flow') return keepingMax(usual, CHILD_INSP_FLOW_MIN_L_PER_MIN);
+  if (field.id === 'vt' && (bodyKg === null || !(bodyKg > 0)) && usual.min !== undefined) return keepingMax(usual, undefined);
   return usual;
 }
 
