@@ -139,6 +139,7 @@ import { assertExportOptions, writtenLabel } from './columns';
 import { exportedNumber } from './precision';
 import { stableHex128, stableUuid, StableIds } from './stable-id';
 import { unitForPeople } from './units';
+import { escapedCode } from '../util/format';
 
 export interface FhirOptions {
   /** ISO 8601 date-time with a zone for 00:00 of day 1 (`2024-03-01T00:00:00+01:00`). */
@@ -512,7 +513,7 @@ export function fhirString(text: string): string {
       bad = true;
     }
     if (!bad) continue;
-    out = (out ?? '') + text.slice(from, i) + (c < 0xa0 ? `\\x${c.toString(16).padStart(2, '0')}` : `\\u{${c.toString(16).toUpperCase().padStart(4, '0')}}`);
+    out = (out ?? '') + text.slice(from, i) + escapedCode(c);
     from = i + 1;
   }
   return out === null ? text : out + text.slice(from);

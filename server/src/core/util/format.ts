@@ -120,11 +120,15 @@ const JOINABLE = '[\\p{M}\\p{Extended_Pictographic}\\p{Emoji_Modifier}]|(?![\\p{
 const SHOWN_ESCAPED = new RegExp(`[${ALWAYS_ESCAPED}]|(?<!${JOINABLE})[\\u200c\\u200d]|[\\u200c\\u200d](?!${JOINABLE})`, 'gu');
 const MAYBE_ESCAPED = new RegExp(`[${ALWAYS_ESCAPED}\\u200c\\u200d]`, 'u');
 
-const escapedChar = (c: string): string => {
-  const code = c.charCodeAt(0);
-  // Control characters as `\xHH` (ESC as `\x1b`), the others (format characters) as `\u{HHHH}`.
+/**
+ * A character's code written out as text output shows it: control characters as `\xHH` (ESC as
+ * `\x1b`), the others (format characters, lone surrogates) as `\u{HHHH}`.
+ */
+export function escapedCode(code: number): string {
   return code < 0xa0 ? `\\x${code.toString(16).padStart(2, '0')}` : `\\u{${code.toString(16).toUpperCase().padStart(4, '0')}}`;
-};
+}
+
+const escapedChar = (c: string): string => escapedCode(c.charCodeAt(0));
 
 /**
  * Text from a note (labels, prose, words, file names, messages that quote them) as a person should
