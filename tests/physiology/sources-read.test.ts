@@ -330,7 +330,7 @@ describe('the compliance of healthy lungs and chest wall, as read', () => {
 });
 
 // A later form of Buck's equation, over liquid water, as read in the Wikipedia article "Arden Buck equation":
-// Ps(T) = 6.1121 exp((18.678 − T/234.5)(T/(257.14 + T))) hPa, T in °C. Pneumark uses the 1981 form (recalled).
+// Ps(T) = 6.1121 exp((18.678 − T/234.5)(T/(257.14 + T))) hPa, T in °C. Pneumark uses the 1981 form (read below).
 function buckLaterFormMmhg(tempC: number): number {
   return (6.1121 * Math.exp((18.678 - tempC / 234.5) * (tempC / (257.14 + tempC))) * 100) / PA_PER_MMHG;
 }
@@ -342,9 +342,34 @@ describe('Buck: the vapour pressure Pneumark uses against the later form as read
     expect(Math.abs((ours ?? 0) / buckLaterFormMmhg(tempC) - 1)).toBeLessThan(0.0005);
   });
 
-  it('the citation says so, and that the 1981 coefficients are recalled', () => {
+  it('the citation says so', () => {
     expect(ATMOSPHERE['buck-1981']).toContain('en.wikipedia.org/wiki/Arden_Buck_equation');
-    expect(ATMOSPHERE['buck-1981']).toContain('from memory, as are the coefficients 17.502 and 240.97');
+  });
+});
+
+// Buck's 1981 form, as read (December 2026, session 29) in its reproduction in the R package HeatStress
+// (rdrr.io/github/anacv/HeatStress/src/R/esat.R, "Buck's (1981) approximation (eqn 3) of Wexler's
+// (1976) formulae over liquid water"): esat = 6.1121 exp(17.502 (Tk − 273.15) / (Tk − 32.18)) hPa, Tk
+// in kelvin; Tk − 32.18 is T + 240.97 with T in °C. (The package then multiplies by 1.004 for moist air,
+// an enhancement factor Pneumark leaves out: the pressure of water vapour in the airways is that of
+// saturation over water.)
+function buck1981AsReadMmhg(tempC: number): number {
+  const tk = tempC + 273.15;
+  return (6.1121 * Math.exp((17.502 * (tk - 273.15)) / (tk - 32.18)) * 100) / PA_PER_MMHG;
+}
+
+describe('Buck 1981: the coefficients Pneumark uses are those of eqn 3 as reproduced in HeatStress', () => {
+  it.each([-20, 0, 20, 37, 39, 50])('%f °C: the same pressure', (tempC) => {
+    expect(waterVapourPressureMmhg(tempC)).toBeCloseTo(buck1981AsReadMmhg(tempC), 9);
+  });
+
+  it('37 °C: 47.1 mmHg', () => {
+    expect(buck1981AsReadMmhg(37)).toBeCloseTo(47.1, 1);
+  });
+
+  it('the citation says where the coefficients were read', () => {
+    expect(ATMOSPHERE['buck-1981']).toContain('rdrr.io/github/anacv/HeatStress');
+    expect(ATMOSPHERE['buck-1981']).not.toContain('from memory, as are the coefficients');
   });
 });
 

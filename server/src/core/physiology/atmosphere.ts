@@ -17,7 +17,7 @@ export const SOURCES = Object.freeze({
   'us-standard-atmosphere-1976':
     'NOAA, NASA, US Air Force. U.S. Standard Atmosphere, 1976 (NOAA-S/T 76-1562). Washington DC: US Government Printing Office, 1976; its troposphere layer is the same as the ICAO Standard Atmosphere (ICAO Doc 7488) (from memory).',
   'buck-1981':
-    'Buck AL. New equations for computing vapor pressure and enhancement factor. J Appl Meteorol 1981;20(12):1527–1532 (from memory, as are the coefficients 17.502 and 240.97 of the 1981 form used here). Its later form over liquid water, 6.1121 exp((18.678 − T/234.5) × T/(257.14 + T)) hPa, read in the Wikipedia article "Arden Buck equation" (en.wikipedia.org/wiki/Arden_Buck_equation), gives the same pressure within 0.05 % from 0 to 42 °C.',
+    'Buck AL. New equations for computing vapor pressure and enhancement factor. J Appl Meteorol 1981;20(12):1527–1532 (the paper not read here): its equation 3 over liquid water, 6.1121 exp(17.502 T/(240.97 + T)) hPa, the form used here, read in its reproduction in the R package HeatStress (rdrr.io/github/anacv/HeatStress, esat.R, which names it Buck 1981 equation 3, written with T + 240.97 as Tk − 32.18). Its later form over liquid water, 6.1121 exp((18.678 − T/234.5) × T/(257.14 + T)) hPa, read in the Wikipedia article "Arden Buck equation" (en.wikipedia.org/wiki/Arden_Buck_equation), gives the same pressure within 0.05 % from 0 to 42 °C.',
   'inspired-po2':
     'Inspired PO2 = FiO2 × (PB − PH2O), water vapour 47 mmHg at 37 °C: standard respiratory physiology, e.g. West JB. Respiratory Physiology: The Essentials (from memory); common practice.',
 } as const);
