@@ -57,6 +57,7 @@ import { SOURCES as ATMOSPHERE, waterVapourPressureMmhg } from '../../server/src
 import { PLACEHOLDERS, type PrivacyKind } from '../../server/src/core/privacy/types';
 import { PRIVACY_CHECKS, possibleName } from '../../server/src/core/checks/privacy';
 import { derivedDef } from '../../server/src/core/derive/registry';
+import { ADULT_FROM_YEARS } from '../../server/src/core/physiology/adults';
 
 /** Per mmHg, as read; Pneumark's spans are per 10 mmHg. */
 const NARINS_EMMETT_AS_ADAPTED = { acuteAcidosis: 0.1, chronicAcidosis: 0.35, acuteAlkalosis: 0.2, chronicAlkalosis: 0.5 } as const;
@@ -418,5 +419,16 @@ describe('the Venturi settings and their flows, as read', () => {
     expect(venturiSetting.source).toContain('md3.info/skills/oxygen/amplified');
     expect(venturiFio2High.source).toContain('md3.info/skills/oxygen/amplified');
     expect(venturiSetting.source).not.toContain('from memory');
+  });
+});
+
+// The ARDS Network trial of 2000 (NEJM 2000;342:1301–1308) as summarised at pathway.md/studies (read in
+// December 2026, session 29): "Key exclusion criteria: younger than 18 years of age"; 861 patients. The
+// paper itself not read here.
+const ARDSNET_EXCLUDED_UNDER_YEARS = 18;
+
+describe('the ARDS Network trial\'s adults, as read in its summary', () => {
+  it('rules made in its adults (predicted body weight) apply from the age it enrolled: 18 years', () => {
+    expect(ADULT_FROM_YEARS).toBe(ARDSNET_EXCLUDED_UNDER_YEARS);
   });
 });
