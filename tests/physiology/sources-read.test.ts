@@ -58,6 +58,7 @@ import { PLACEHOLDERS, type PrivacyKind } from '../../server/src/core/privacy/ty
 import { PRIVACY_CHECKS, possibleName } from '../../server/src/core/checks/privacy';
 import { derivedDef } from '../../server/src/core/derive/registry';
 import { ADULT_FROM_YEARS } from '../../server/src/core/physiology/adults';
+import { fieldById } from '../../server/src/core/fields/registry';
 
 /** Per mmHg, as read; Pneumark's spans are per 10 mmHg. */
 const NARINS_EMMETT_AS_ADAPTED = { acuteAcidosis: 0.1, chronicAcidosis: 0.35, acuteAlkalosis: 0.2, chronicAlkalosis: 0.5 } as const;
@@ -430,5 +431,45 @@ const ARDSNET_EXCLUDED_UNDER_YEARS = 18;
 describe('the ARDS Network trial\'s adults, as read in its summary', () => {
   it('rules made in its adults (predicted body weight) apply from the age it enrolled: 18 years', () => {
     expect(ADULT_FROM_YEARS).toBe(ARDSNET_EXCLUDED_UNDER_YEARS);
+  });
+});
+
+// The extremes the field registry's bounds name, as read (December 2026, session 29):
+// - Grocott MPW et al. Arterial blood gases and oxygen content in climbers on Mount Everest. NEJM
+//   2009;360:140–149, its abstract: at 8,400 m (barometric pressure 272 mmHg) mean PaO2 24.6 mmHg
+//   (19.1 to 29.5), mean PaCO2 13.3 mmHg (10.3 to 15.7).
+// - West JB. Human physiology at extreme altitudes on Mount Everest. Science 1984;223:784–788, its
+//   abstract: on the summit an alveolar PCO2 of 7.5 torr and an arterial pH of over 7.7.
+// - West JB et al. J Appl Physiol 1983;54:1188–1194, its abstract: 253.0 Torr on the summit.
+// - A body temperature of 13.7 °C survived (Gilbert M et al., Lancet 2000), in a Reuters report of the
+//   case quoting its first author (cryonet.org).
+const EVEREST_8400_M = { pao2: { mean: 24.6, low: 19.1, high: 29.5 }, paco2: { mean: 13.3, low: 10.3, high: 15.7 } } as const;
+
+describe('the extremes the field registry names, as read', () => {
+  const bounds = (id: string) => {
+    const field = fieldById(id);
+    if (!field?.hard || !field.soft) throw new Error(id);
+    return { hard: field.hard, soft: field.soft, source: field.boundsSource ?? '' };
+  };
+
+  it.each(['pao2', 'paco2'] as const)('%s at 8,400 m (Grocott 2009): every value measured is possible, and the mean below the usual minimum that low pressure waives', (id) => {
+    const { hard, soft, source } = bounds(id);
+    expect(hard.min!).toBeLessThanOrEqual(EVEREST_8400_M[id].low);
+    expect(soft.min!).toBeGreaterThan(EVEREST_8400_M[id].mean);
+    expect(source).toContain('Grocott MPW et al., NEJM 2009;360:140–149, read in its abstract');
+  });
+
+  it('pH over 7.7 on the summit (West, Science 1984) is possible and within the usual bounds', () => {
+    const { hard, soft, source } = bounds('ph');
+    expect(hard.max!).toBeGreaterThan(7.7);
+    expect(soft.max!).toBeGreaterThan(7.7);
+    expect(source).toContain('Science 1984;223:784–788, read in its abstract');
+  });
+
+  it('253 mmHg on the summit (West 1983) is a possible barometric pressure, 13.7 °C a possible temperature', () => {
+    expect(bounds('barometric').hard.min!).toBeLessThan(253);
+    expect(bounds('barometric').source).toContain('read in its abstract: 253.0 Torr');
+    expect(bounds('temp').hard.min!).toBeLessThanOrEqual(13.7);
+    expect(bounds('temp').source).toContain('13.7 °C read in a Reuters report');
   });
 });
