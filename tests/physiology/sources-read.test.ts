@@ -59,6 +59,8 @@ import { PRIVACY_CHECKS, possibleName } from '../../server/src/core/checks/priva
 import { derivedDef } from '../../server/src/core/derive/registry';
 import { ADULT_FROM_YEARS } from '../../server/src/core/physiology/adults';
 import { fieldById } from '../../server/src/core/fields/registry';
+import { SOURCES as TRANSPORT } from '../../server/src/core/physiology/oxygen-transport';
+import { settingsSchema } from '../../server/src/core/settings';
 
 /** Per mmHg, as read; Pneumark's spans are per 10 mmHg. */
 const NARINS_EMMETT_AS_ADAPTED = { acuteAcidosis: 0.1, chronicAcidosis: 0.35, acuteAlkalosis: 0.2, chronicAlkalosis: 0.5 } as const;
@@ -471,5 +473,25 @@ describe('the extremes the field registry names, as read', () => {
     expect(bounds('barometric').source).toContain('read in its abstract: 253.0 Torr');
     expect(bounds('temp').hard.min!).toBeLessThanOrEqual(13.7);
     expect(bounds('temp').source).toContain('13.7 °C read in a Reuters report');
+  });
+});
+
+// Hüfner's factor, as read (December 2026, session 29) in the abstract of Dijkhuizen P et al. The oxygen
+// binding capacity of human haemoglobin: Hüfner's factor redetermined. Pflugers Arch 1977;369:223–231
+// (link.springer.com): 1.39 mL/g were all haemoglobin active; measured in 36 healthy men, mean 1.368 mL/g,
+// range 1.322 to 1.387.
+const HUFNER_AS_READ = { theoretical: 1.39, mean: 1.368, low: 1.322, high: 1.387 } as const;
+
+describe('the Hüfner constants Pneumark offers, against Dijkhuizen 1977 as read', () => {
+  it('the default 1.34 and 1.36 lie within the range measured; 1.39 is the theoretical maximum', () => {
+    const offered = [1.34, 1.36, 1.39];
+    for (const h of offered) expect(settingsSchema.safeParse({ hufnerConstant: h }).success, String(h)).toBe(true);
+    expect(settingsSchema.parse({}).hufnerConstant).toBe(1.34);
+    for (const h of [1.34, 1.36]) {
+      expect(h).toBeGreaterThanOrEqual(HUFNER_AS_READ.low);
+      expect(h).toBeLessThanOrEqual(HUFNER_AS_READ.high);
+    }
+    expect(1.39).toBe(HUFNER_AS_READ.theoretical);
+    expect(TRANSPORT['oxygen-content']).toContain('mean 1.368 mL/g (range 1.322–1.387)');
   });
 });
