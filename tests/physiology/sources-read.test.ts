@@ -53,7 +53,7 @@ import { VENTURI_PERCENT } from '../../server/src/core/syntax/parser';
 import { METRES_PER_FOOT, MMHG_PER_CMH2O, MMHG_PER_KPA, PA_PER_CMH2O, PA_PER_MMHG, SOURCES as UNIT_SOURCES } from '../../server/src/core/physiology/units';
 import { deltaRatioBand } from '../../server/src/core/physiology/acid-base';
 import { COMPLIANCE_CEILING_ML_PER_CMH2O } from '../../server/src/core/physiology/mechanics';
-import { SOURCES as ATMOSPHERE, waterVapourPressureMmhg } from '../../server/src/core/physiology/atmosphere';
+import { barometricFromAltitudeStandard, SOURCES as ATMOSPHERE, waterVapourPressureMmhg } from '../../server/src/core/physiology/atmosphere';
 import { PLACEHOLDERS, type PrivacyKind } from '../../server/src/core/privacy/types';
 import { PRIVACY_CHECKS, possibleName } from '../../server/src/core/checks/privacy';
 import { derivedDef } from '../../server/src/core/derive/registry';
@@ -493,5 +493,32 @@ describe('the Hüfner constants Pneumark offers, against Dijkhuizen 1977 as read
     }
     expect(1.39).toBe(HUFNER_AS_READ.theoretical);
     expect(TRANSPORT['oxygen-content']).toContain('mean 1.368 mL/g (range 1.322–1.387)');
+  });
+});
+
+// The U.S. Standard Atmosphere 1976, troposphere, with its constants as read (December 2026, session 29) in
+// the table of crnslab.org/util/atmo.php: p0 101325 Pa, T0 288.15 K, lapse rate 6.5 K/km, g0 9.80665 m/s²,
+// M0 28.9644 kg/kmol, R* 8.31432 J/(K·mol), r0 6356766 m, 22632 Pa at the tropopause (11 km); and in the
+// layer table at av8n.com/physics/altimetry.htm: 22632.1 Pa at 11,000 m.
+const STD = { p0: 101325, t0: 288.15, lapse: 0.0065, g0: 9.80665, m0: 28.9644e-3, r: 8.31432, r0: 6356766 } as const;
+function standardAsReadPa(geometricM: number): number {
+  const h = (STD.r0 * geometricM) / (STD.r0 + geometricM);
+  return STD.p0 * Math.pow(1 - (STD.lapse * h) / STD.t0, (STD.g0 * STD.m0) / (STD.r * STD.lapse));
+}
+
+describe('the standard atmosphere Pneumark uses, against its constants as read', () => {
+  it('the constants read give 22632.1 Pa at 11,000 m geopotential, the tropopause pressure read', () => {
+    const exponent = (STD.g0 * STD.m0) / (STD.r * STD.lapse);
+    expect(STD.p0 * Math.pow(1 - (STD.lapse * 11000) / STD.t0, exponent)).toBeCloseTo(22632.1, 0);
+  });
+
+  it.each([-1000, 0, 1000, 3000, 5000, 8848, 10000])('%d m: the same pressure as the formula with the constants read, to 1 in 10⁵', (z) => {
+    const ours = barometricFromAltitudeStandard(z);
+    expect(ours).not.toBeNull();
+    expect(Math.abs((ours! * PA_PER_MMHG) / standardAsReadPa(z) - 1)).toBeLessThan(1e-5);
+  });
+
+  it('the citation says where the constants were read', () => {
+    expect(ATMOSPHERE['us-standard-atmosphere-1976']).toContain('crnslab.org/util/atmo.php');
   });
 });
