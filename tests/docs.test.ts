@@ -383,7 +383,7 @@ const SPEC_LINES: Readonly<Record<string, readonly string[] | { readonly on: str
   'height 70': ['PN204'],
   'patient age 8 mo, height 70, weight 8': [],
   'height 0.72': { on: 'patient age 8 mo\n@ 08:00\npatient height 0.72', codes: ['PN204'] },
-  // An infant's length from 30 cm: a bare number offered inches only where they make it one.
+  // An infant's length from a floor that rises with age (46 cm at 8 months): a bare number offered inches only where they make it one.
   'height 25': { on: 'patient age 8 mo\n@ 08:00\npatient height 25', codes: ['PN204'] },
   'height 10': { on: 'patient age 8 mo\n@ 08:00\npatient height 10', codes: ['PN301'] },
   // An age in years, months, weeks or days.

@@ -32,7 +32,7 @@ describe('a bare height or weight of a child is read against a child\'s size (PN
   it('a toddler of 2 years and 86 cm, a child of 6 years, 116 cm and 21 kg', () => {
     expect(codes('patient age 2 y, height 86')).toEqual([]);
     expect(codes('patient age 6 y, height 116, weight 21')).toEqual([]);
-    // A newborn at term, about 50 cm and 3.3 kg (from memory), written with an age of 0 years or months.
+    // A newborn at term, about 50 cm (the WHO length-for-age median at birth, 49.1 cm for girls and 49.9 cm for boys, read in the WHO package anthro) and 3.3 kg (from memory), written with an age of 0 years or months.
     expect(codes('patient age 0 y, height 50, weight 3.3')).toEqual([]);
     expect(codes('patient age 0 mo, height 48')).toEqual([]);
   });

@@ -286,7 +286,7 @@ const CASES: readonly AuditCase[] = [
   },
   {
     name: 'setting waterVapour body-temperature at 39.5 °C: PH2O 53.9 mmHg, PiO2 148.3 mmHg',
-    source: 'Buck AL, J Appl Meteorol 1981;20:1527–1532 (from memory): e = 6.1121 × exp(17.502 T / (240.97 + T)) hPa',
+    source: 'Buck AL, J Appl Meteorol 1981;20:1527–1532 (its eqn 3 read in its reproduction in the R package HeatStress): e = 6.1121 × exp(17.502 T / (240.97 + T)) hPa',
     note: 'patient age 40 y\n@ 08:00\noxygen room air\nvitals temp 39.5 C\nabg 7.40/40/90/24.4',
     settings: { waterVapour: 'body-temperature' },
     values: { pio2: [0.21 * (760 - (6.1121 * Math.exp((17.502 * 39.5) / 280.47) * 100) / 133.322387415), 6] },

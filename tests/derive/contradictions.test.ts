@@ -104,7 +104,7 @@ describe('a PaO2 within rounding above the alveolar PO2', () => {
     expect(ratio.notes.join(' ')).toMatch(/within rounding of the alveolar PO2/);
   });
 
-  it('on the summit of Everest too (PB 253 mmHg, West et al. 1983 — from memory): PAO2 0.21 × 206 − 12 ÷ 0.8 = 28.3, PaO2 30', () => {
+  it('on the summit of Everest too (PB 253 mmHg, West et al. 1983, read in its abstract): PAO2 0.21 × 206 − 12 ÷ 0.8 = 28.3, PaO2 30', () => {
     const summit = 'patient age 35 y\nplace barometric 253 mmHg\n@ 08:00\noxygen room air\nabg 7.70/12/30/14';
     expect(0.21 * (253 - 47) - 12 / 0.8).toBeCloseTo(28.26, 2);
     expect(derived(summit, 'aa_gradient').value).toBe(0);

@@ -43,7 +43,7 @@ describe('age-based upper normal of the A–a gradient', () => {
 describe('barometric pressure at a note level', () => {
   it('follows the barometric model setting', () => {
     const note = 'place altitude 8848 m\n@ 08:00\noxygen room air\nabg 7.55/12/28/10.5';
-    // Summit of Mount Everest: about 253 mmHg measured (West JB et al., J Appl Physiol 1983;54:1188–1194, from memory);
+    // Summit of Mount Everest: about 253 mmHg measured (West JB et al., J Appl Physiol 1983;54:1188–1194, read in its abstract: 253.0 Torr);
     // the standard atmosphere reads about 15–17 mmHg lower there (project reference notes).
     const west = derived(note, 'barometric').value;
     const standard = derived(note, 'barometric', { barometricModel: 'standard' }).value;

@@ -19,15 +19,22 @@
 // [UNITS] FHIR R4 ValueSet ucum-vitals-common, "Vital Signs Units"
 //      (https://hl7.org/fhir/R4/valueset-ucum-vitals-common.json, read in its 2018Dec canonical XML
 //      for the whole list): %, cm, [in_i], kg, g, [lb_av], Cel, [degF], mm[Hg], /min, kg/m2, m2.
-// [CODES] Which codes the profile applies to: the vital-signs codes of R4's Observation page (heart
-//      rate 8867-4, respiratory rate 9279-1, SpO2 2708-6 and 59408-5, body temperature 8310-5, blood
-//      pressure panel 85354-9 with 8480-6 and 8462-4, height 8302-2, weight 29463-7, BMI 39156-5,
-//      head circumference 9843-4, mean blood pressure 8478-0): from memory.
+// [CODES] Which codes the profile applies to: FHIR's Vital Signs value set
+//      (http://hl7.org/fhir/ValueSet/observation-vitalsignresult), to which the profile binds
+//      Observation.code (extensible), read in its R5 page (https://hl7.org/fhir/R5/valueset-observation-vitalsignresult.html)
+//      and its current build (build.fhir.org, valueset-observation-vitalsign-category): 85353-1,
+//      9279-1, 8867-4, 2708-6, 8310-5, 8302-2, 9843-4, 29463-7, 39156-5, 85354-9, 8480-6, 8462-4;
+//      its R4 (4.0.1) and R4B pages read as far as the definition, which is the same text and names
+//      the same panels; the R4 oxygen saturation profile fixes 2708-6
+//      (https://hl7.org/fhir/R4/oxygensat.html). Pneumark adds two codes the binding, being
+//      extensible, allows, each a vital sign by its LOINC name: 59408-5 (SpO2 by pulse oximetry)
+//      and 8478-0 (mean blood pressure).
 // [DAR] Where the note gives no date, the primitive carries the extension
 //      http://hl7.org/fhir/StructureDefinition/data-absent-reason with code `unknown` (FHIR R4
 //      extension data-absent-reason, value set data-absent-reason: from memory), and no value.
 import { beforeAll, describe, expect, it } from 'vitest';
 import { toFhirBundle, type FhirOptions } from '../../server/src/core/export';
+import { VITAL_SIGN_LOINC } from '../../server/src/core/export/fhir';
 import { allNotes, checked } from './helpers';
 
 const noAnchor: FhirOptions = { redactProse: false, shiftDays: 0 };
@@ -36,8 +43,11 @@ const redacted: FhirOptions = { anchor: '2024-02-28T00:00Z', redactProse: true, 
 
 const DAR_URL = 'http://hl7.org/fhir/StructureDefinition/data-absent-reason';
 const CATEGORY_SYSTEM = 'http://terminology.hl7.org/CodeSystem/observation-category';
-/** [CODES] */
-const VITAL_SIGN_CODES = new Set(['8867-4', '9279-1', '2708-6', '59408-5', '8310-5', '85354-9', '8480-6', '8462-4', '8302-2', '29463-7', '39156-5', '9843-4', '8478-0']);
+/** [CODES]: the Vital Signs value set as read (12 codes). */
+const VALUE_SET_READ = ['85353-1', '9279-1', '8867-4', '2708-6', '8310-5', '8302-2', '9843-4', '29463-7', '39156-5', '85354-9', '8480-6', '8462-4'];
+/** [CODES]: Pneumark's additions. */
+const ADDED = ['59408-5', '8478-0'];
+const VITAL_SIGN_CODES = new Set([...VALUE_SET_READ, ...ADDED]);
 /** [UNITS] */
 const VITAL_SIGN_UNITS = new Set(['%', 'cm', '[in_i]', 'kg', 'g', '[lb_av]', 'Cel', '[degF]', 'mm[Hg]', '/min', 'kg/m2', 'm2']);
 /** [VS-1]: a FHIR dateTime to the day at least (a date, or a date and time with a zone). */
@@ -49,6 +59,13 @@ const obj = (v: unknown): Json => (typeof v === 'object' && v !== null ? (v as J
 const list = (v: unknown): Json[] => (Array.isArray(v) ? v.map(obj) : []);
 const codesOf = (concept: unknown): string[] => list(obj(concept).coding).map((c) => String(c.code));
 
+
+describe('the codes the vital-signs profile applies to [CODES]', () => {
+  it('are the 12 codes of FHIR\'s Vital Signs value set as read, and Pneumark\'s two additions (59408-5, 8478-0), no more', () => {
+    expect([...VITAL_SIGN_LOINC].sort()).toEqual([...VALUE_SET_READ, ...ADDED].sort());
+    for (const code of VALUE_SET_READ) expect(VITAL_SIGN_LOINC.has(code), code).toBe(true);
+  });
+});
 
 let notes: ReturnType<typeof allNotes>;
 beforeAll(() => {

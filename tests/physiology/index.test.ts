@@ -8,6 +8,7 @@ import { describe, expect, it } from 'vitest';
 import * as acidBase from '../../server/src/core/physiology/acid-base';
 import * as atmosphere from '../../server/src/core/physiology/atmosphere';
 import * as gas from '../../server/src/core/physiology/gas-exchange';
+import * as growth from '../../server/src/core/physiology/growth';
 import * as physiology from '../../server/src/core/physiology/index';
 import * as mechanics from '../../server/src/core/physiology/mechanics';
 import * as transport from '../../server/src/core/physiology/oxygen-transport';
@@ -18,6 +19,7 @@ const modules = {
   'acid-base': acidBase,
   atmosphere,
   'gas-exchange': gas,
+  growth,
   mechanics,
   'oxygen-transport': transport,
   units,

@@ -53,10 +53,14 @@ import { VENTURI_PERCENT } from '../../server/src/core/syntax/parser';
 import { METRES_PER_FOOT, MMHG_PER_CMH2O, MMHG_PER_KPA, PA_PER_CMH2O, PA_PER_MMHG, SOURCES as UNIT_SOURCES } from '../../server/src/core/physiology/units';
 import { deltaRatioBand } from '../../server/src/core/physiology/acid-base';
 import { COMPLIANCE_CEILING_ML_PER_CMH2O } from '../../server/src/core/physiology/mechanics';
-import { SOURCES as ATMOSPHERE, waterVapourPressureMmhg } from '../../server/src/core/physiology/atmosphere';
+import { barometricFromAltitudeStandard, SOURCES as ATMOSPHERE, waterVapourPressureMmhg } from '../../server/src/core/physiology/atmosphere';
 import { PLACEHOLDERS, type PrivacyKind } from '../../server/src/core/privacy/types';
 import { PRIVACY_CHECKS, possibleName } from '../../server/src/core/checks/privacy';
 import { derivedDef } from '../../server/src/core/derive/registry';
+import { ADULT_FROM_YEARS } from '../../server/src/core/physiology/adults';
+import { fieldById } from '../../server/src/core/fields/registry';
+import { SOURCES as TRANSPORT } from '../../server/src/core/physiology/oxygen-transport';
+import { settingsSchema } from '../../server/src/core/settings';
 
 /** Per mmHg, as read; Pneumark's spans are per 10 mmHg. */
 const NARINS_EMMETT_AS_ADAPTED = { acuteAcidosis: 0.1, chronicAcidosis: 0.35, acuteAlkalosis: 0.2, chronicAlkalosis: 0.5 } as const;
@@ -330,7 +334,7 @@ describe('the compliance of healthy lungs and chest wall, as read', () => {
 });
 
 // A later form of Buck's equation, over liquid water, as read in the Wikipedia article "Arden Buck equation":
-// Ps(T) = 6.1121 exp((18.678 − T/234.5)(T/(257.14 + T))) hPa, T in °C. Pneumark uses the 1981 form (recalled).
+// Ps(T) = 6.1121 exp((18.678 − T/234.5)(T/(257.14 + T))) hPa, T in °C. Pneumark uses the 1981 form (read below).
 function buckLaterFormMmhg(tempC: number): number {
   return (6.1121 * Math.exp((18.678 - tempC / 234.5) * (tempC / (257.14 + tempC))) * 100) / PA_PER_MMHG;
 }
@@ -342,9 +346,34 @@ describe('Buck: the vapour pressure Pneumark uses against the later form as read
     expect(Math.abs((ours ?? 0) / buckLaterFormMmhg(tempC) - 1)).toBeLessThan(0.0005);
   });
 
-  it('the citation says so, and that the 1981 coefficients are recalled', () => {
+  it('the citation says so', () => {
     expect(ATMOSPHERE['buck-1981']).toContain('en.wikipedia.org/wiki/Arden_Buck_equation');
-    expect(ATMOSPHERE['buck-1981']).toContain('from memory, as are the coefficients 17.502 and 240.97');
+  });
+});
+
+// Buck's 1981 form, as read (December 2026, session 29) in its reproduction in the R package HeatStress
+// (rdrr.io/github/anacv/HeatStress/src/R/esat.R, "Buck's (1981) approximation (eqn 3) of Wexler's
+// (1976) formulae over liquid water"): esat = 6.1121 exp(17.502 (Tk − 273.15) / (Tk − 32.18)) hPa, Tk
+// in kelvin; Tk − 32.18 is T + 240.97 with T in °C. (The package then multiplies by 1.004 for moist air,
+// an enhancement factor Pneumark leaves out: the pressure of water vapour in the airways is that of
+// saturation over water.)
+function buck1981AsReadMmhg(tempC: number): number {
+  const tk = tempC + 273.15;
+  return (6.1121 * Math.exp((17.502 * (tk - 273.15)) / (tk - 32.18)) * 100) / PA_PER_MMHG;
+}
+
+describe('Buck 1981: the coefficients Pneumark uses are those of eqn 3 as reproduced in HeatStress', () => {
+  it.each([-20, 0, 20, 37, 39, 50])('%f °C: the same pressure', (tempC) => {
+    expect(waterVapourPressureMmhg(tempC)).toBeCloseTo(buck1981AsReadMmhg(tempC), 9);
+  });
+
+  it('37 °C: 47.1 mmHg', () => {
+    expect(buck1981AsReadMmhg(37)).toBeCloseTo(47.1, 1);
+  });
+
+  it('the citation says where the coefficients were read', () => {
+    expect(ATMOSPHERE['buck-1981']).toContain('rdrr.io/github/anacv/HeatStress');
+    expect(ATMOSPHERE['buck-1981']).not.toContain('from memory, as are the coefficients');
   });
 });
 
@@ -393,5 +422,103 @@ describe('the Venturi settings and their flows, as read', () => {
     expect(venturiSetting.source).toContain('md3.info/skills/oxygen/amplified');
     expect(venturiFio2High.source).toContain('md3.info/skills/oxygen/amplified');
     expect(venturiSetting.source).not.toContain('from memory');
+  });
+});
+
+// The ARDS Network trial of 2000 (NEJM 2000;342:1301–1308) as summarised at pathway.md/studies (read in
+// December 2026, session 29): "Key exclusion criteria: younger than 18 years of age"; 861 patients. The
+// paper itself not read here.
+const ARDSNET_EXCLUDED_UNDER_YEARS = 18;
+
+describe('the ARDS Network trial\'s adults, as read in its summary', () => {
+  it('rules made in its adults (predicted body weight) apply from the age it enrolled: 18 years', () => {
+    expect(ADULT_FROM_YEARS).toBe(ARDSNET_EXCLUDED_UNDER_YEARS);
+  });
+});
+
+// The extremes the field registry's bounds name, as read (December 2026, session 29):
+// - Grocott MPW et al. Arterial blood gases and oxygen content in climbers on Mount Everest. NEJM
+//   2009;360:140–149, its abstract: at 8,400 m (barometric pressure 272 mmHg) mean PaO2 24.6 mmHg
+//   (19.1 to 29.5), mean PaCO2 13.3 mmHg (10.3 to 15.7).
+// - West JB. Human physiology at extreme altitudes on Mount Everest. Science 1984;223:784–788, its
+//   abstract: on the summit an alveolar PCO2 of 7.5 torr and an arterial pH of over 7.7.
+// - West JB et al. J Appl Physiol 1983;54:1188–1194, its abstract: 253.0 Torr on the summit.
+// - A body temperature of 13.7 °C survived (Gilbert M et al., Lancet 2000), in a Reuters report of the
+//   case quoting its first author (cryonet.org).
+const EVEREST_8400_M = { pao2: { mean: 24.6, low: 19.1, high: 29.5 }, paco2: { mean: 13.3, low: 10.3, high: 15.7 } } as const;
+
+describe('the extremes the field registry names, as read', () => {
+  const bounds = (id: string) => {
+    const field = fieldById(id);
+    if (!field?.hard || !field.soft) throw new Error(id);
+    return { hard: field.hard, soft: field.soft, source: field.boundsSource ?? '' };
+  };
+
+  it.each(['pao2', 'paco2'] as const)('%s at 8,400 m (Grocott 2009): every value measured is possible, and the mean below the usual minimum that low pressure waives', (id) => {
+    const { hard, soft, source } = bounds(id);
+    expect(hard.min!).toBeLessThanOrEqual(EVEREST_8400_M[id].low);
+    expect(soft.min!).toBeGreaterThan(EVEREST_8400_M[id].mean);
+    expect(source).toContain('Grocott MPW et al., NEJM 2009;360:140–149, read in its abstract');
+  });
+
+  it('pH over 7.7 on the summit (West, Science 1984) is possible and within the usual bounds', () => {
+    const { hard, soft, source } = bounds('ph');
+    expect(hard.max!).toBeGreaterThan(7.7);
+    expect(soft.max!).toBeGreaterThan(7.7);
+    expect(source).toContain('Science 1984;223:784–788, read in its abstract');
+  });
+
+  it('253 mmHg on the summit (West 1983) is a possible barometric pressure, 13.7 °C a possible temperature', () => {
+    expect(bounds('barometric').hard.min!).toBeLessThan(253);
+    expect(bounds('barometric').source).toContain('read in its abstract: 253.0 Torr');
+    expect(bounds('temp').hard.min!).toBeLessThanOrEqual(13.7);
+    expect(bounds('temp').source).toContain('13.7 °C read in a Reuters report');
+  });
+});
+
+// Hüfner's factor, as read (December 2026, session 29) in the abstract of Dijkhuizen P et al. The oxygen
+// binding capacity of human haemoglobin: Hüfner's factor redetermined. Pflugers Arch 1977;369:223–231
+// (link.springer.com): 1.39 mL/g were all haemoglobin active; measured in 36 healthy men, mean 1.368 mL/g,
+// range 1.322 to 1.387.
+const HUFNER_AS_READ = { theoretical: 1.39, mean: 1.368, low: 1.322, high: 1.387 } as const;
+
+describe('the Hüfner constants Pneumark offers, against Dijkhuizen 1977 as read', () => {
+  it('the default 1.34 and 1.36 lie within the range measured; 1.39 is the theoretical maximum', () => {
+    const offered = [1.34, 1.36, 1.39];
+    for (const h of offered) expect(settingsSchema.safeParse({ hufnerConstant: h }).success, String(h)).toBe(true);
+    expect(settingsSchema.parse({}).hufnerConstant).toBe(1.34);
+    for (const h of [1.34, 1.36]) {
+      expect(h).toBeGreaterThanOrEqual(HUFNER_AS_READ.low);
+      expect(h).toBeLessThanOrEqual(HUFNER_AS_READ.high);
+    }
+    expect(1.39).toBe(HUFNER_AS_READ.theoretical);
+    expect(TRANSPORT['oxygen-content']).toContain('mean 1.368 mL/g (range 1.322–1.387)');
+  });
+});
+
+// The U.S. Standard Atmosphere 1976, troposphere, with its constants as read (December 2026, session 29) in
+// the table of crnslab.org/util/atmo.php: p0 101325 Pa, T0 288.15 K, lapse rate 6.5 K/km, g0 9.80665 m/s²,
+// M0 28.9644 kg/kmol, R* 8.31432 J/(K·mol), r0 6356766 m, 22632 Pa at the tropopause (11 km); and in the
+// layer table at av8n.com/physics/altimetry.htm: 22632.1 Pa at 11,000 m.
+const STD = { p0: 101325, t0: 288.15, lapse: 0.0065, g0: 9.80665, m0: 28.9644e-3, r: 8.31432, r0: 6356766 } as const;
+function standardAsReadPa(geometricM: number): number {
+  const h = (STD.r0 * geometricM) / (STD.r0 + geometricM);
+  return STD.p0 * Math.pow(1 - (STD.lapse * h) / STD.t0, (STD.g0 * STD.m0) / (STD.r * STD.lapse));
+}
+
+describe('the standard atmosphere Pneumark uses, against its constants as read', () => {
+  it('the constants read give 22632.1 Pa at 11,000 m geopotential, the tropopause pressure read', () => {
+    const exponent = (STD.g0 * STD.m0) / (STD.r * STD.lapse);
+    expect(STD.p0 * Math.pow(1 - (STD.lapse * 11000) / STD.t0, exponent)).toBeCloseTo(22632.1, 0);
+  });
+
+  it.each([-1000, 0, 1000, 3000, 5000, 8848, 10000])('%d m: the same pressure as the formula with the constants read, to 1 in 10⁵', (z) => {
+    const ours = barometricFromAltitudeStandard(z);
+    expect(ours).not.toBeNull();
+    expect(Math.abs((ours! * PA_PER_MMHG) / standardAsReadPa(z) - 1)).toBeLessThan(1e-5);
+  });
+
+  it('the citation says where the constants were read', () => {
+    expect(ATMOSPHERE['us-standard-atmosphere-1976']).toContain('crnslab.org/util/atmo.php');
   });
 });

@@ -6,6 +6,7 @@
 import { fieldById, type Bounds, type FieldDef } from '../fields/registry';
 import { convert, unitById, type UnitDef } from '../fields/units';
 import { ADULT_FROM_YEARS } from '../physiology/adults';
+import { lengthForAgeGirlsCm, PRETERM_GIRL_LENGTH_MINUS_3SD_CM } from '../physiology/growth';
 import { halfLastDigit } from '../util/format';
 
 export const LOW_PRESSURE_WAIVER_MMHG = 500;
@@ -71,30 +72,56 @@ function childSizeBounds(id: string): Bounds {
 const CHILD_HEIGHT = childSizeBounds('height');
 const CHILD_WEIGHT = childSizeBounds('weight');
 
-/** Under this age (years) a height is an infant's length, from INFANT_LENGTH_MIN_CM. */
+/** Under this age (years) a height is an infant's length, from `infantLengthMinCm`. */
 export const INFANT_UNTIL_YEARS = 1;
 
 /**
- * The shortest infant after birth, cm: a newborn of 24 weeks of gestation is about 30 cm long (from
- * memory), a term newborn about 50 cm (common practice, no source). An infant's length below it is
- * no length at all: a bare `height 10` of an 8-month-old is not offered inches (25 cm), and a
- * height written in cm below it is unusual (PN302).
+ * How many weeks before term (40 weeks) an infant's length allows for: a birth at 24 weeks of
+ * gestation, the earliest of the very preterm reference read (`intergrowth-very-preterm-2016` in
+ * physiology/growth.ts). An infant's age is corrected by it before its length is judged.
  */
-export const INFANT_LENGTH_MIN_CM = 30;
+export const EARLIEST_BIRTH_WEEKS_BEFORE_TERM = 16;
 
-const INFANT_HEIGHT: Bounds = Object.freeze({ min: INFANT_LENGTH_MIN_CM, max: CHILD_HEIGHT.max });
+/** How far below the girls' −3 SD at the corrected age an infant's length floor lies, cm: our margin, no source. */
+export const INFANT_LENGTH_MARGIN_CM = 10;
+
+const DAYS_PER_YEAR = 365.25;
+
+/**
+ * The shortest usual length (cm) of an infant of `ageYears` (under INFANT_UNTIL_YEARS), in whole cm
+ * rounded down: until EARLIEST_BIRTH_WEEKS_BEFORE_TERM weeks after birth, the −3 SD length of a
+ * girl born at 24 weeks (24.0 cm, INTERGROWTH-21st); from then on the larger of that and the
+ * girls' −3 SD length-for-age (WHO Child Growth Standards 2006) at the age so corrected, less
+ * INFANT_LENGTH_MARGIN_CM. Girls are the shorter sex, the correction takes the earliest birth, and
+ * the margin is some 6 SD more, so that no real infant's length is below it: 24 cm at birth, 33 cm
+ * at 16 weeks, 46 cm at 8 months, 49 cm at 10 months. An infant's length below it is no length at
+ * all for a bare number (an 8-month-old's `height 10` is not offered inches, 25 cm), and a length
+ * written in cm below it is unusual (PN302). It was 30 cm at every age under a year (from memory),
+ * which flagged a real preterm newborn and passed a 10-month-old of 31 cm.
+ */
+export function infantLengthMinCm(ageYears: number): number {
+  const correctedDays = ageYears * DAYS_PER_YEAR - EARLIEST_BIRTH_WEEKS_BEFORE_TERM * 7;
+  const line = correctedDays >= 0 ? lengthForAgeGirlsCm(correctedDays, -3) : null;
+  const newborn = Math.floor(PRETERM_GIRL_LENGTH_MINUS_3SD_CM);
+  return line === null ? newborn : Math.max(newborn, Math.floor(line - INFANT_LENGTH_MARGIN_CM));
+}
+
+/** An infant's length window: from `infantLengthMinCm` to a child's usual maximum. */
+function infantHeight(ageYears: number): Bounds {
+  return { min: infantLengthMinCm(ageYears), max: CHILD_HEIGHT.max };
+}
 
 /**
  * The size window of a body size of a patient of `ageYears` (null: none in force): under
  * ADULT_FROM_YEARS a child's (`childSizeBounds`), and for a height under INFANT_UNTIL_YEARS an
- * infant's, from INFANT_LENGTH_MIN_CM; null for an adult, for no age, and for any other field. It
+ * infant's, from `infantLengthMinCm`; null for an adult, for no age, and for any other field. It
  * is both the doubt window of a bare number (`doubtBoundsAt`) and where another unit would make the
  * number ordinary (`ordinaryBoundsAt`).
  */
 export function childSizeAt(field: FieldDef, ageYears: number | null): Bounds | null {
   if (!isChildAge(ageYears) || !isBodySize(field)) return null;
   if (field.id === 'weight') return CHILD_WEIGHT;
-  return ageYears! < INFANT_UNTIL_YEARS ? INFANT_HEIGHT : CHILD_HEIGHT;
+  return ageYears! < INFANT_UNTIL_YEARS ? infantHeight(ageYears!) : CHILD_HEIGHT;
 }
 
 /** `usual`'s maximum with `min` as its minimum (none where undefined): a child's usual bounds drop or replace an adult's minimum. */
@@ -129,15 +156,15 @@ function childWindowAt(field: FieldDef, ageYears: number | null): Bounds | null 
 /**
  * The usual bounds of a field for a patient under ADULT_FROM_YEARS, from `usual`, the bounds an
  * adult's value is read against (PN302), for a patient of `ageYears`: a body size keeps only its
- * usual maximum, with an infant's length from INFANT_LENGTH_MIN_CM, the inspiratory flow a child's minimum (CHILD_INSP_FLOW_MIN_L_PER_MIN), and a tidal volume read
+ * usual maximum, with an infant's length from `infantLengthMinCm`, the inspiratory flow a child's minimum (CHILD_INSP_FLOW_MIN_L_PER_MIN), and a tidal volume read
  * against no body size (`bodyKg` null: neither a weight nor a predicted body weight in force) has no
  * usual minimum, as a child's size runs from a preterm newborn's to an adult's (common practice,
  * no source); with a body size its minimum is per kg for a child as for an adult (`softBoundsAt`).
  */
 export function childUsualBounds(field: FieldDef, usual: Bounds | undefined, bodyKg: number | null, ageYears: number): Bounds | undefined {
   // A child's height and weight have no usual minimum (an adult's, 120 cm and 25 kg, is none of a
-  // child's; common practice, no source), but an infant's length starts at INFANT_LENGTH_MIN_CM.
-  if (isBodySize(field)) return keepingMax(usual, field.id === 'height' && ageYears < INFANT_UNTIL_YEARS ? INFANT_LENGTH_MIN_CM : undefined);
+  // child's; common practice, no source), but an infant's length starts at `infantLengthMinCm`.
+  if (isBodySize(field)) return keepingMax(usual, field.id === 'height' && ageYears < INFANT_UNTIL_YEARS ? infantLengthMinCm(ageYears) : undefined);
   if (usual === undefined) return usual;
   if (field.id === 'insp_flow') return keepingMax(usual, CHILD_INSP_FLOW_MIN_L_PER_MIN);
   if (field.id === 'vt' && (bodyKg === null || !(bodyKg > 0)) && usual.min !== undefined) return keepingMax(usual, undefined);
@@ -149,7 +176,7 @@ export function childUsualBounds(field: FieldDef, usual: Bounds | undefined, bod
  * field's doubt window, else its soft bounds, with the same waiver at low barometric pressure; for
  * a body size of a patient under ADULT_FROM_YEARS (`ageYears`, the age in force where the number
  * is read; null: none), a child's window (`childWindowAt`: a child's size, an infant's length from
- * INFANT_LENGTH_MIN_CM, a child's inspiratory flow).
+ * `infantLengthMinCm`, a child's inspiratory flow).
  */
 export function doubtBoundsAt(field: FieldDef, barometricMmhg: number | null, ageYears: number | null = null): Bounds | undefined {
   const child = childWindowAt(field, ageYears);

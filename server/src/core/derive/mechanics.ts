@@ -57,7 +57,7 @@ function askedVolume(c: DeriveContext): boolean {
   return c.word('mode') !== null || c.ventLineHere();
 }
 
-/** Age (years) from which the ARDS Network's predicted body weight is worked out: the trial's adults (ARDS Network 2000, from memory; the equation is for adults only, read in the abstract of BMC Pulm Med 2017, doi 10.1186/s12890-017-0427-1). */
+/** Age (years) from which the ARDS Network's predicted body weight is worked out: the trial's adults (ARDS Network 2000, which excluded patients younger than 18 years, read in the trial's summary at pathway.md/studies; the equation is for adults only, read in the abstract of BMC Pulm Med 2017, doi 10.1186/s12890-017-0427-1). */
 export const PBW_ADULT_FROM_YEARS = ADULT_FROM_YEARS;
 const PBW_FOR_ADULTS = `the ARDS Network equation is for adults (${PBW_ADULT_FROM_YEARS} years or more)`;
 

@@ -282,10 +282,14 @@ export const PATIENT_ID = 'patient';
 /** FHIR's extension for why an element has no value. */
 export const DATA_ABSENT_REASON_URL = 'http://hl7.org/fhir/StructureDefinition/data-absent-reason';
 /**
- * The LOINC codes for which FHIR R4 says an Observation SHALL conform to its vital-signs profile
- * (the table of vital signs on R4's Observation page: from memory): such an Observation is in the
+ * The LOINC codes for which an Observation is to conform to FHIR's vital-signs profile: the 12 of
+ * its Vital Signs value set (observation-vitalsignresult, to which the profile binds the code,
+ * extensibly), read in its R5 page and its current build, whose R4 and R4B pages give the same
+ * definition, with the R4 oxygen saturation profile fixing 2708-6 (read at hl7.org/fhir/R4/oxygensat.html);
+ * and two that the extensible binding allows and that are vital signs by their LOINC names, 59408-5
+ * (SpO2 by pulse oximetry) and 8478-0 (mean blood pressure). Such an Observation is in the
  * vital-signs category whatever its field's category, since the profile asks for it (an arterial
- * SaO2, 2708-6, is laboratory and vital-signs).
+ * SaO2, 2708-6, is laboratory and vital-signs). tests/export/fhir-vital-signs.test.ts pins the list.
  */
 export const VITAL_SIGN_LOINC: ReadonlySet<string> = new Set(['85353-1', '9279-1', '8867-4', '2708-6', '59408-5', '8310-5', '8302-2', '9843-4', '29463-7', '39156-5', '85354-9', '8480-6', '8462-4', '8478-0']);
 

@@ -2,7 +2,7 @@
  * The physiology layer: pure formulas, no I/O, no editor or LSP types.
  *
  * What lives here: one module per topic (atmosphere, gas exchange, acid–base, mechanics, oxygen
- * transport, units). Internal units are fixed (gas pressures mmHg, airway pressures cmH2O,
+ * transport, units, infants' growth). Internal units are fixed (gas pressures mmHg, airway pressures cmH2O,
  * volumes mL, flows L/min, Hb g/dL, electrolytes mmol/L, FiO2 a fraction, SpO2/SaO2 percent
  * unless a name says fraction). Every function is total: it returns `null`, never NaN or
  * ±Infinity, and never throws. Each module exports its own `SOURCES` (key → citation) and each
@@ -15,6 +15,7 @@
 import { SOURCES as ACID_BASE_SOURCES } from './acid-base';
 import { SOURCES as ATMOSPHERE_SOURCES } from './atmosphere';
 import { SOURCES as GAS_EXCHANGE_SOURCES } from './gas-exchange';
+import { SOURCES as GROWTH_SOURCES } from './growth';
 import { SOURCES as MECHANICS_SOURCES } from './mechanics';
 import { SOURCES as OXYGEN_TRANSPORT_SOURCES } from './oxygen-transport';
 import { SOURCES as UNITS_SOURCES } from './units';
@@ -22,6 +23,7 @@ import { SOURCES as UNITS_SOURCES } from './units';
 export * from './acid-base';
 export * from './atmosphere';
 export * from './gas-exchange';
+export * from './growth';
 export * from './mechanics';
 export * from './oxygen-transport';
 export * from './units';
@@ -30,6 +32,7 @@ export {
   ACID_BASE_SOURCES,
   ATMOSPHERE_SOURCES,
   GAS_EXCHANGE_SOURCES,
+  GROWTH_SOURCES,
   MECHANICS_SOURCES,
   OXYGEN_TRANSPORT_SOURCES,
   UNITS_SOURCES,
@@ -43,6 +46,7 @@ export const SOURCES = Object.freeze({
   ...ACID_BASE_SOURCES,
   ...MECHANICS_SOURCES,
   ...OXYGEN_TRANSPORT_SOURCES,
+  ...GROWTH_SOURCES,
 });
 
 /** Citations grouped by module. */
@@ -53,4 +57,5 @@ export const SOURCES_BY_MODULE = Object.freeze({
   'acid-base': ACID_BASE_SOURCES,
   mechanics: MECHANICS_SOURCES,
   'oxygen-transport': OXYGEN_TRANSPORT_SOURCES,
+  growth: GROWTH_SOURCES,
 });

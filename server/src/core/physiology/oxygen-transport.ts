@@ -10,7 +10,7 @@ import { allFinite, finiteOrNull, inClosedRange } from './numeric';
 /** Citations for the formulas in this module (key → citation). */
 export const SOURCES = Object.freeze({
   'oxygen-content':
-    'Arterial O2 content CaO2 = Hüfner constant × Hb × SaO2 + 0.003 × PaO2 (mL/dL), and O2 delivery DO2 = CO × CaO2 × 10: standard physiology, e.g. West JB. Respiratory Physiology: The Essentials (from memory). Hüfner constant 1.34 mL/g by default (1.36 and 1.39 also published).',
+    'Arterial O2 content CaO2 = Hüfner constant × Hb × SaO2 + 0.003 × PaO2 (mL/dL), and O2 delivery DO2 = CO × CaO2 × 10: standard physiology, e.g. West JB. Respiratory Physiology: The Essentials (from memory). Hüfner constant 1.34 mL/g by default (1.36 and 1.39 also published): the oxygen binding capacity of human haemoglobin measured in 36 healthy men, mean 1.368 mL/g (range 1.322–1.387), and 1.39 mL/g were all haemoglobin active, read in its abstract (Dijkhuizen P, Buursma A, Fongers TME, et al. The oxygen binding capacity of human haemoglobin: Hüfner\'s factor redetermined. Pflugers Arch 1977;369:223–231, at link.springer.com), so each setting lies within what was measured or at the theoretical maximum.',
   'nasal-cannula-fio2':
     'Nasal cannula FiO2 ≈ 0.21 + 0.04 per L/min up to 6 L/min: common practice, no source (rough; depends on breathing pattern).',
   'mean-arterial-pressure':
