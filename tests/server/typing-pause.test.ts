@@ -3,8 +3,8 @@
 // published for each version, those shown once typing pauses, on Enter and on save.
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import type { CodeAction, Diagnostic, PublishDiagnosticsParams } from 'vscode-languageserver-protocol';
-import { serverForTests } from './lsp-client';
+import type { CodeAction, Diagnostic, InlayHint, PublishDiagnosticsParams } from 'vscode-languageserver-protocol';
+import { serverForTests, startClient } from './lsp-client';
 
 const client = serverForTests();
 
@@ -101,11 +101,56 @@ describe('a note typed a key at a time over the protocol', () => {
     expect((await note.actions(1, 18)).filter((a) => a.kind === 'quickfix').map((a) => a.title)).toEqual(['Remove the full stop']);
   });
 
+  it('shows at once what is pasted: several words are no keystroke', async () => {
+    client.settings = { typingPauseMs: 10000 };
+    const note = await opened('@ day 1 08:00\n');
+    const uri = note.uri;
+    const at = { line: 1, character: 0 };
+    const v = note.version + 1;
+    await client.connection.sendNotification('textDocument/didChange', { textDocument: { uri, version: v }, contentChanges: [{ range: { start: at, end: at }, text: 'vitals    hr 80, spo2 9' }] });
+    expect(on(1, (await client.diagnostics(uri, (p) => p.version === v)).diagnostics)).toEqual(['PN302']);
+  });
+
   it('shows everything at once with typingPauseMs 0', async () => {
     client.settings = { typingPauseMs: 0 };
     const note = await opened('@ day 1 08:00\n');
     const seen = await note.type('vitals    spo2 9');
     expect(on(1, seen.at(-1)!)).toEqual(['PN302']);
     expect(on(1, seen[0]!)).toEqual(['PN101']);
+  });
+});
+
+describe('inlay hints of the line being typed', () => {
+  it('are left out until typing pauses, and the editor is asked for them again then', async () => {
+    const refreshing = await startClient({}, { refreshHints: true });
+    try {
+      const text = 'patient   age 61 y, sex female, height 160 cm\n@ day 1 22:05\n';
+      const uri = refreshing.open(join(process.cwd(), 'typing-pause-hints.pneu'), text);
+      await refreshing.diagnostics(uri);
+      const hints = async () => (await refreshing.connection.sendRequest<InlayHint[]>('textDocument/inlayHint', { textDocument: { uri }, range: { start: { line: 0, character: 0 }, end: { line: 3, character: 0 } } }))
+        .map((h) => `${h.position.line}: ${typeof h.label === 'string' ? h.label : h.label.map((p) => p.value).join('')}`);
+      let version = 1;
+      let line = '';
+      const type = async (keys: string) => {
+        for (const ch of keys) {
+          const at = { line: 2, character: line.length };
+          line += ch;
+          const v = ++version;
+          await refreshing.connection.sendNotification('textDocument/didChange', { textDocument: { uri, version: v }, contentChanges: [{ range: { start: at, end: at }, text: ch }] });
+          await refreshing.diagnostics(uri, (p) => p.version === v);
+        }
+      };
+      const before = refreshing.hintRefreshes();
+      // `vt 4`, then `vt 40`: VT 0.1 mL/kg, then 0.8 mL/kg, would follow each digit.
+      await type('vent      mode VC, vt 4');
+      expect(await hints()).toEqual([]);
+      await type('0');
+      expect(await hints()).toEqual([]);
+      await type('0 mL');
+      await refreshing.hintRefresh(before);
+      expect(await hints()).toEqual(['2: VT 7.6 mL/kg']);
+    } finally {
+      await refreshing.close();
+    }
   });
 });

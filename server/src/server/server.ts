@@ -95,6 +95,12 @@ interface NoteState {
    * shows them once typing pauses: the diagnostics of every finding of that version.
    */
   held: { readonly version: number; readonly all: Diagnostic[]; readonly held: ReadonlySet<Diagnostic>; readonly cancel: () => void } | null;
+  /**
+   * The line being typed, from a keystroke until typing pauses (`typingPauseMs`), the note is
+   * saved or an edit that is no keystroke: its inlay hints are left out meanwhile, as they would
+   * follow each digit of a value half typed (`vt 4`, VT 0.1 mL/kg), and are asked for again after.
+   */
+  typing: { readonly version: number; readonly line: number; readonly cancel: () => void } | null;
 }
 
 /** Where a keystroke left the cursor: the end of the one change of an edit within a line. */
@@ -231,7 +237,7 @@ export function startServer(connection: Connection, collector: IdleCollector = n
   /**
    * The place of each note's last edit, when it was a keystroke (one change within a line: a
    * character typed or deleted, a word completed); an edit that adds or removes lines (Enter, a
-   * paste, a quick fix over lines) leaves none. Recorded as the documents apply the editor's
+   * quick fix over lines) or pastes several words leaves none. Recorded as the documents apply the editor's
    * incremental changes.
    */
   const keystrokes = new Map<string, Keystroke>();
@@ -240,7 +246,9 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     update: (doc, changes, version) => {
       const change = changes.length === 1 ? changes[0]! : null;
       const range = change && 'range' in change ? (change.range as Range) : null;
-      const start = change && range && !/[\r\n]/.test(change.text) && range.start.line === range.end.line ? doc.offsetAt(range.start) : -1;
+      // A character typed or deleted, or a word completed (no blank or comma in what is inserted: a
+      // paste of several items is no keystroke).
+      const start = change && range && range.start.line === range.end.line && (change.text.length <= 1 ? !/[\r\n]/.test(change.text) : !/[\s,]/.test(change.text)) ? doc.offsetAt(range.start) : -1;
       const updated = TextDocument.update(doc, changes, version);
       if (start >= 0) keystrokes.set(doc.uri, { version, at: updated.positionAt(start + change!.text.length) });
       else keystrokes.delete(doc.uri);
@@ -422,7 +430,7 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     const key = settingsKey(settings.analysis);
     let state = notes.get(doc.uri);
     if (!state) {
-      state = { session: new NoteSession(settings.analysis), key, settings, timer: null, published: null, diagnostics: [], reading: null, release: null, config: found, analysedConfig: undefined, refused: null, lineCheck: null, held: null };
+      state = { session: new NoteSession(settings.analysis), key, settings, timer: null, published: null, diagnostics: [], reading: null, release: null, config: found, analysedConfig: undefined, refused: null, lineCheck: null, held: null, typing: null };
       notes.set(doc.uri, state);
     } else if (state.key !== key) {
       state.session.setSettings(settings.analysis);
@@ -827,6 +835,7 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     // Saving is a pause: what was held back at the place typed is shown now.
     const state = notes.get(e.document.uri);
     if (state?.held) guard('save', undefined, () => showHeld(e.document.uri, state))(undefined);
+    if (state?.typing) guard('save', undefined, () => endTyping(state))(undefined);
     guard('save', undefined, recheckUnwatched)(undefined);
   });
 
@@ -837,12 +846,40 @@ export function startServer(connection: Connection, collector: IdleCollector = n
   }
   documents.onDidChangeContent((e) => {
     if (!notes.has(e.document.uri)) return; // the open handler schedules the first analysis
+    guard('typing', undefined, () => followTyping(e.document))(undefined);
     schedule(e.document.uri, false);
   });
+
+  /** Notes the line a keystroke typed in (see `NoteState.typing`); an edit that is no keystroke ends it. */
+  function followTyping(doc: TextDocument): void {
+    const state = notes.get(doc.uri);
+    if (!state) return;
+    const typed = state.typing;
+    state.typing?.cancel();
+    state.typing = null;
+    const keystroke = keystrokes.get(doc.uri);
+    if (keystroke?.version !== doc.version || state.settings.typingPauseMs === 0) {
+      // Another line was being typed: its hints come back now.
+      if (typed) refreshHints();
+      return;
+    }
+    const handle = setTimeout(() => endTyping(state), state.settings.typingPauseMs);
+    state.typing = { version: doc.version, line: keystroke.at.line, cancel: () => clearTimeout(handle) };
+    if (typed && typed.line !== keystroke.at.line) refreshHints();
+  }
+
+  /** Typing paused (or the note was saved): the hints of the line typed are asked for again. */
+  function endTyping(state: NoteState): void {
+    if (!state.typing) return;
+    state.typing.cancel();
+    state.typing = null;
+    refreshHints();
+  }
   documents.onDidClose((e) => {
     const state = notes.get(e.document.uri);
     state?.timer?.cancel();
     state?.held?.cancel();
+    state?.typing?.cancel();
     keystrokes.delete(e.document.uri);
     notes.delete(e.document.uri);
     clientSettings.delete(e.document.uri);
@@ -892,7 +929,9 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     completionsAt(result, params.position).map((c, i) => toCompletionItem(c, i, params.position, insertReplace))));
 
   connection.languages.inlayHint.on(withResult('inlay hints', [], (result, doc, state, params, token) => inSlices('inlay hints', [], (function* () {
-    const found = yield* inlayHintSteps(result, { start: params.range.start.line, end: params.range.end.line }, { categories: state.settings.hints });
+    const all = yield* inlayHintSteps(result, { start: params.range.start.line, end: params.range.end.line }, { categories: state.settings.hints });
+    const typing = state.typing?.version === doc.version ? state.typing.line : -1;
+    const found = typing < 0 ? all : all.filter((h) => h.position.line !== typing);
     return yield* prepared(found.map((h) => toInlayHint(h, deferHintTooltips ? { uri: doc.uri, version: doc.version, line: h.position.line, category: h.category } : null)));
   })(), token)));
 
