@@ -3,7 +3,7 @@
 import { describe, expect, it } from 'vitest';
 import { checkNote } from '../../server/src/core';
 import { heldWhileTyping, typedItem } from '../../server/src/core/service/typing';
-import { flashes, shownWhileTyping, strokeAt, typeNote } from '../helpers/keystrokes';
+import { completionsAfter, flashes, hintsAfter, hoverAfter, shownWhileTyping, strokeAt, typeNote } from '../helpers/keystrokes';
 import { TYPED_NOTES } from './typing-notes';
 
 const codesAt = (text: string) => strokeAt(typeNote(text), text).result.findings.map((f) => f.code);
@@ -70,5 +70,22 @@ describe('a note typed a key at a time', () => {
     const held = heldWhileTyping(findings, text, { line: 0, character: 15 }, () => false);
     expect(held.map((f) => [f.code, f.range.start.character])).toEqual([['PN302', 13]]);
     expect(findings.filter((f) => !held.includes(f)).map((f) => [f.code, f.range.start.character])).toEqual([['PN302', 20], ['PN302', 29]]);
+  });
+
+  it('offers at each point what comes next, and hovers give the unit a value was read in', () => {
+    const strokes = typeNote(TYPED_NOTES['ward review on oxygen']!);
+    const labels = (prefix: string) => completionsAfter(strokeAt(strokes, prefix)).map((c) => c.label);
+    const head = 'patient   age 67 y, sex male, height 178 cm, weight 84 kg\n\n@ day 1 09:40  ward review, breathless overnight\n';
+    // The device after `oxygen`, its unit after the flow, the keys after a section word and a unit after a number.
+    expect(labels(`${head}oxygen    `).slice(0, 3)).toEqual(['room air', 'cannula', 'mask']);
+    expect(labels(`${head}oxygen    cannula 3 `)[0]).toBe('L/min');
+    expect(labels(`${head}oxygen    cannula 3 L/min\nvitals    `).slice(0, 3)).toEqual(['hr', 'rr', 'spo2']);
+    expect(labels(`${head}oxygen    cannula 3 L/min\nvitals    hr 102, rr 26, spo2 93 `)[0]).toBe('%');
+    expect(labels('patient   age 67 y, sex male, height 178 ')[0]).toBe('cm');
+    // A half-typed value hovers with the unit it is read in.
+    const half = strokeAt(strokes, `${head}oxygen    cannula 3 L/min\nvitals    hr 102, rr 26, spo2 9`);
+    expect(hoverAfter(half, { line: 4, character: 30 })?.markdown).toContain('Value: **9 %**');
+    // The acid–base reading is hinted once the gas is written.
+    expect(hintsAfter(strokes.at(-1)!).map((h) => h.label)).toContain('consistent with resp. acidosis, chronic');
   });
 });
