@@ -251,6 +251,8 @@ describe('the settings in README.md', () => {
     const text = section.replace(/\s+/g, ' ');
     const debounce = p['pneumark.debounceMs']!;
     expect(text).toContain(`\`pneumark.debounceMs\`, the milliseconds to wait after the last keystroke before a note is checked again (${String(debounce.default)} by default, ${String(debounce.minimum)} to ${String(debounce.maximum)})`);
+    const pause = p['pneumark.typingPauseMs']!;
+    expect(text).toContain(`\`pneumark.typingPauseMs\`, the milliseconds typing must pause before a new problem at the place being typed is shown (${String(pause.default)} by default, ${String(pause.minimum)} to ${String(pause.maximum)};`);
     const size = p['pneumark.maxNoteSizeKb']!;
     expect(text).toContain(`\`pneumark.maxNoteSizeKb\`, the size in KB above which a note is not checked (${String(size.default)} by default, ${String(size.minimum)} to ${String(size.maximum)};`);
     expect(doc.replace(/\s+/g, ' ')).toContain(`notes over \`pneumark.maxNoteSizeKb\` (counted in UTF-8 bytes; ${String(size.default)} by default, ${String(size.minimum)} to ${String(size.maximum)})`);

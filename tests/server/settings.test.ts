@@ -29,6 +29,13 @@ describe('readClientSettings', () => {
     expect(readClientSettings({ hints: 'all', debounceMs: 5 })).toMatchObject({ settings: { hints: {}, debounceMs: 5 }, problem: expect.stringMatching(/pneumark\.hints/) });
   });
 
+  it('reads typingPauseMs: a whole number of milliseconds from 0 to 10000, 1000 by default', () => {
+    expect(DEFAULT_CLIENT_SETTINGS.typingPauseMs).toBe(1000);
+    expect(readClientSettings({ typingPauseMs: 0 })).toMatchObject({ settings: { typingPauseMs: 0 }, problem: null });
+    expect(readClientSettings({ typingPauseMs: 20000 })).toMatchObject({ settings: { typingPauseMs: 1000 }, problem: 'pneumark.typingPauseMs: must be at most 10000' });
+    expect(readClientSettings({ typingPauseMs: 1.5 }).settings.typingPauseMs).toBe(1000);
+  });
+
   it('names each problem of a setting once, and not the largest whole number JavaScript holds', () => {
     expect(readClientSettings({ debounceMs: 1e308 }).problem).toBe('pneumark.debounceMs: must be at most 5000');
     expect(readClientSettings({ maxNoteSizeKb: -1e300 }).problem).toBe('pneumark.maxNoteSizeKb: must be at least 16');

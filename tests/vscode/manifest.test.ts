@@ -35,7 +35,7 @@ const extensionSource = ['client/src/extension.ts'].map((f) => readFileSync(f, '
 function serverSchema(name: string): z.ZodType | 'client' | null {
   const key = name.replace(/^pneumark\./, '');
   if (key in settingsSchema.shape) return settingsSchema.shape[key as keyof typeof settingsSchema.shape].unwrap() as z.ZodType;
-  if (key === 'debounceMs' || key === 'maxNoteSizeKb') return clientSettingsSchema.shape[key].unwrap() as z.ZodType;
+  if (key === 'debounceMs' || key === 'typingPauseMs' || key === 'maxNoteSizeKb') return clientSettingsSchema.shape[key].unwrap() as z.ZodType;
   if (key.startsWith('hints.') && (HINT_CATEGORIES as readonly string[]).includes(key.slice(6))) return z.boolean();
   // Read by the language client itself (vscode-languageclient reads `<id>.trace.server`).
   if (key === 'trace.server') return 'client';
@@ -52,7 +52,7 @@ describe('the contributed settings', () => {
   it('are each read by the server or the language client', () => {
     for (const name of Object.keys(properties)) expect(serverSchema(name), name).not.toBeNull();
     // And every setting the server reads is contributed.
-    for (const key of [...Object.keys(settingsSchema.shape), 'debounceMs', 'maxNoteSizeKb', ...HINT_CATEGORIES.map((c) => `hints.${c}`)]) expect(properties[`pneumark.${key}`], key).toBeDefined();
+    for (const key of [...Object.keys(settingsSchema.shape), 'debounceMs', 'typingPauseMs', 'maxNoteSizeKb', ...HINT_CATEGORIES.map((c) => `hints.${c}`)]) expect(properties[`pneumark.${key}`], key).toBeDefined();
   });
 
   it('have the server\'s defaults, choices and ranges', () => {
@@ -62,7 +62,7 @@ describe('the contributed settings', () => {
       const key = name.replace(/^pneumark\./, '');
       const serverDefault = key.startsWith('hints.') ? key !== 'hints.transport'
         : key in DEFAULT_SETTINGS ? DEFAULT_SETTINGS[key as keyof typeof DEFAULT_SETTINGS]
-          : DEFAULT_CLIENT_SETTINGS[key as 'debounceMs' | 'maxNoteSizeKb'];
+          : DEFAULT_CLIENT_SETTINGS[key as 'debounceMs' | 'typingPauseMs' | 'maxNoteSizeKb'];
       expect(p.default, name).toEqual(serverDefault);
       expect(schema.safeParse(p.default).success, name).toBe(true);
       for (const choice of p.enum ?? []) expect(schema.safeParse(choice).success, `${name}: ${String(choice)}`).toBe(true);

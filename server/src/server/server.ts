@@ -36,6 +36,7 @@ import { formatEdits } from '../core/service/format';
 import { tooLargeMessage } from './too-large-message';
 import { inlayHints, inlayHintSteps } from '../core/service/hints';
 import { hoverAt } from '../core/service/hover';
+import { heldWhileTyping } from '../core/service/typing';
 import { documentSymbolSteps, foldingRanges } from '../core/service/symbols';
 import { convertNoteUnitSteps } from '../core/service/unit-conversion';
 import { NoteSession } from '../core/session';
@@ -89,6 +90,23 @@ interface NoteState {
   refused: { readonly from: number; readonly message: string } | null;
   /** The last text looked at for a line too long to analyse, and what was found (see `tooLongLine`). */
   lineCheck: { readonly text: string; readonly message: string | null } | null;
+  /**
+   * Findings held back at the place being typed (see core/service/typing.ts), and the timer that
+   * shows them once typing pauses: the diagnostics of every finding of that version.
+   */
+  held: { readonly version: number; readonly all: Diagnostic[]; readonly held: ReadonlySet<Diagnostic>; readonly cancel: () => void } | null;
+  /**
+   * The line being typed, from a keystroke until typing pauses (`typingPauseMs`), the note is
+   * saved or an edit that is no keystroke: its inlay hints are left out meanwhile, as they would
+   * follow each digit of a value half typed (`vt 4`, VT 0.1 mL/kg), and are asked for again after.
+   */
+  typing: { readonly version: number; readonly line: number; readonly cancel: () => void } | null;
+}
+
+/** Where a keystroke left the cursor: the end of the one change of an edit within a line. */
+interface Keystroke {
+  readonly version: number;
+  readonly at: { readonly line: number; readonly character: number };
 }
 
 /** What of a project file decides an analysis: where it is and what it says. */
@@ -216,7 +234,27 @@ function tooCostly(message: string): Refusal {
 }
 
 export function startServer(connection: Connection, collector: IdleCollector = new IdleCollector()): void {
-  const documents = new TextDocuments(TextDocument);
+  /**
+   * The place of each note's last edit, when it was a keystroke (one change within a line: a
+   * character typed or deleted, a word completed); an edit that adds or removes lines (Enter, a
+   * quick fix over lines) or pastes several words leaves none. Recorded as the documents apply the editor's
+   * incremental changes.
+   */
+  const keystrokes = new Map<string, Keystroke>();
+  const documents = new TextDocuments<TextDocument>({
+    create: TextDocument.create,
+    update: (doc, changes, version) => {
+      const change = changes.length === 1 ? changes[0]! : null;
+      const range = change && 'range' in change ? (change.range as Range) : null;
+      // A character typed or deleted, or a word completed (no blank or comma in what is inserted: a
+      // paste of several items is no keystroke).
+      const start = change && range && range.start.line === range.end.line && (change.text.length <= 1 ? !/[\r\n]/.test(change.text) : !/[\s,]/.test(change.text)) ? doc.offsetAt(range.start) : -1;
+      const updated = TextDocument.update(doc, changes, version);
+      if (start >= 0) keystrokes.set(doc.uri, { version, at: updated.positionAt(start + change!.text.length) });
+      else keystrokes.delete(doc.uri);
+      return updated;
+    },
+  });
   const notes = new Map<string, NoteState>();
   const clientSettings = new Map<string, ClientSettings>();
   const configs = new ProjectConfigs();
@@ -392,7 +430,7 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     const key = settingsKey(settings.analysis);
     let state = notes.get(doc.uri);
     if (!state) {
-      state = { session: new NoteSession(settings.analysis), key, settings, timer: null, published: null, diagnostics: [], reading: null, release: null, config: found, analysedConfig: undefined, refused: null, lineCheck: null };
+      state = { session: new NoteSession(settings.analysis), key, settings, timer: null, published: null, diagnostics: [], reading: null, release: null, config: found, analysedConfig: undefined, refused: null, lineCheck: null, held: null, typing: null };
       notes.set(doc.uri, state);
     } else if (state.key !== key) {
       state.session.setSettings(settings.analysis);
@@ -582,7 +620,9 @@ export function startServer(connection: Connection, collector: IdleCollector = n
         const shown = findingsToPublish(findings);
         const diagnostics = shown.map((f) => diagnosticOf(f, uri));
         if (shown.length < findings.length) diagnostics.push(tooManyFindings(findings.length, shown.length));
-        publish(uri, state, version, started, diagnostics, timing);
+        const held = heldAtKeystroke(uri, state, version, text, shown);
+        publish(uri, state, version, started, held.size === 0 ? diagnostics : diagnostics.filter((d) => !held.has(d)), timing);
+        if (held.size > 0) holdUntilPause(uri, state, version, diagnostics, held);
         endReading();
         return;
       }
@@ -698,6 +738,45 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     return notAnalysed(text, state) === null && state.session.wouldStep(text, FIRST_STEP_LINES);
   }
 
+  /**
+   * The diagnostics held back after a keystroke (the version analysed is the one it made): new
+   * findings at the place typed (`heldWhileTyping`), so that a value or word half typed does not
+   * flash an error at each key. None when `typingPauseMs` is 0.
+   */
+  function heldAtKeystroke(uri: string, state: NoteState, version: number, text: string, findings: readonly NoteResult['findings'][number][]): Set<Diagnostic> {
+    const held = new Set<Diagnostic>();
+    const keystroke = keystrokes.get(uri);
+    if (state.settings.typingPauseMs === 0 || keystroke?.version !== version) return held;
+    const doc = documents.get(uri);
+    if (!doc) return held;
+    const line = keystroke.at.line;
+    const lineText = text.slice(doc.offsetAt({ line, character: 0 }), doc.offsetAt({ line, character: Number.MAX_SAFE_INTEGER }));
+    const before = state.diagnostics;
+    const shownBefore = (f: NoteResult['findings'][number]) => {
+      const d = diagnosticOf(f, uri);
+      return before.some((b) => b === d || (b.code === d.code && b.range.start.line === d.range.start.line && b.range.start.character === d.range.start.character));
+    };
+    for (const f of heldWhileTyping(findings, lineText, keystroke.at, shownBefore)) held.add(diagnosticOf(f, uri));
+    return held;
+  }
+
+  /** Shows every diagnostic of `version` once the note has not changed for `typingPauseMs` (or at once when it is saved). */
+  function holdUntilPause(uri: string, state: NoteState, version: number, all: Diagnostic[], held: ReadonlySet<Diagnostic>): void {
+    const handle = setTimeout(() => showHeld(uri, state), state.settings.typingPauseMs);
+    state.held = { version, all, held, cancel: () => clearTimeout(handle) };
+  }
+
+  /** Publishes the diagnostics held back, when the version they belong to is still the note's. */
+  function showHeld(uri: string, state: NoteState): void {
+    const held = state.held;
+    if (!held) return;
+    held.cancel();
+    state.held = null;
+    if (notes.get(uri) !== state || documents.get(uri)?.version !== held.version) return;
+    state.diagnostics = held.all;
+    void connection.sendDiagnostics({ uri, version: held.version, diagnostics: held.all });
+  }
+
   function publish(uri: string, state: NoteState, version: number, started: number, diagnostics: Diagnostic[], timing = { steps: 1, longestStepMillis: performance.now() - started }): void {
     // Never publish over a newer version.
     if (documents.get(uri)?.version !== version) return;
@@ -712,6 +791,8 @@ export function startServer(connection: Connection, collector: IdleCollector = n
   function schedule(uri: string, immediate: boolean): void {
     const state = notes.get(uri);
     state?.timer?.cancel();
+    // What was held for the last version is superseded by the analysis of the next.
+    if (state?.held) { state.held.cancel(); state.held = null; }
     // An analysis that will take steps: requests about the note wait for it from now on.
     const doc = documents.get(uri);
     if (state && doc && wouldStep(state, doc)) openGate(state);
@@ -750,7 +831,13 @@ export function startServer(connection: Connection, collector: IdleCollector = n
       schedule(e.document.uri, true);
     });
   });
-  documents.onDidSave(() => guard('save', undefined, recheckUnwatched)(undefined));
+  documents.onDidSave((e) => {
+    // Saving is a pause: what was held back at the place typed is shown now.
+    const state = notes.get(e.document.uri);
+    if (state?.held) guard('save', undefined, () => showHeld(e.document.uri, state))(undefined);
+    if (state?.typing) guard('save', undefined, () => endTyping(state))(undefined);
+    guard('save', undefined, recheckUnwatched)(undefined);
+  });
 
   /** Notes that read a folder that could not be watched: their project files are looked at again (a stat per folder). */
   function recheckUnwatched(except?: string): void {
@@ -759,11 +846,41 @@ export function startServer(connection: Connection, collector: IdleCollector = n
   }
   documents.onDidChangeContent((e) => {
     if (!notes.has(e.document.uri)) return; // the open handler schedules the first analysis
+    guard('typing', undefined, () => followTyping(e.document))(undefined);
     schedule(e.document.uri, false);
   });
+
+  /** Notes the line a keystroke typed in (see `NoteState.typing`); an edit that is no keystroke ends it. */
+  function followTyping(doc: TextDocument): void {
+    const state = notes.get(doc.uri);
+    if (!state) return;
+    const typed = state.typing;
+    state.typing?.cancel();
+    state.typing = null;
+    const keystroke = keystrokes.get(doc.uri);
+    if (keystroke?.version !== doc.version || state.settings.typingPauseMs === 0) {
+      // Another line was being typed: its hints come back now.
+      if (typed) refreshHints();
+      return;
+    }
+    const handle = setTimeout(() => endTyping(state), state.settings.typingPauseMs);
+    state.typing = { version: doc.version, line: keystroke.at.line, cancel: () => clearTimeout(handle) };
+    if (typed && typed.line !== keystroke.at.line) refreshHints();
+  }
+
+  /** Typing paused (or the note was saved): the hints of the line typed are asked for again. */
+  function endTyping(state: NoteState): void {
+    if (!state.typing) return;
+    state.typing.cancel();
+    state.typing = null;
+    refreshHints();
+  }
   documents.onDidClose((e) => {
     const state = notes.get(e.document.uri);
     state?.timer?.cancel();
+    state?.held?.cancel();
+    state?.typing?.cancel();
+    keystrokes.delete(e.document.uri);
     notes.delete(e.document.uri);
     clientSettings.delete(e.document.uri);
     watcher.release(e.document.uri);
@@ -812,7 +929,9 @@ export function startServer(connection: Connection, collector: IdleCollector = n
     completionsAt(result, params.position).map((c, i) => toCompletionItem(c, i, params.position, insertReplace))));
 
   connection.languages.inlayHint.on(withResult('inlay hints', [], (result, doc, state, params, token) => inSlices('inlay hints', [], (function* () {
-    const found = yield* inlayHintSteps(result, { start: params.range.start.line, end: params.range.end.line }, { categories: state.settings.hints });
+    const all = yield* inlayHintSteps(result, { start: params.range.start.line, end: params.range.end.line }, { categories: state.settings.hints });
+    const typing = state.typing?.version === doc.version ? state.typing.line : -1;
+    const found = typing < 0 ? all : all.filter((h) => h.position.line !== typing);
     return yield* prepared(found.map((h) => toInlayHint(h, deferHintTooltips ? { uri: doc.uri, version: doc.version, line: h.position.line, category: h.category } : null)));
   })(), token)));
 
@@ -833,7 +952,11 @@ export function startServer(connection: Connection, collector: IdleCollector = n
   });
 
   connection.onCodeAction(withResult('code actions', [], (result, doc, state, params, token) => inSlices('code actions', [], (function* () {
-    const actions = yield* codeActionSteps(result, params.range);
+    const all = yield* codeActionSteps(result, params.range);
+    // A quick fix of problems held back while typed waits with them (`temp 38.` is no full stop
+    // to remove while `38.2` is being typed).
+    const held = state.held?.version === doc.version ? state.held.held : null;
+    const actions = held ? all.filter((a) => a.kind !== 'quickfix' || !a.resolves || a.resolves.length === 0 || !a.resolves.every((f) => held.has(diagnosticOf(f, doc.uri)))) : all;
     const diagnostics = params.context.diagnostics.length > 0 ? params.context.diagnostics : state.diagnostics.filter((d) => rangesOverlap(d.range, params.range));
     const only = params.context.only;
     return actions

@@ -19,6 +19,11 @@ export const clientSettingsSchema = z
     hints: z.record(z.string(), z.boolean()).default({}),
     /** Milliseconds to wait after the last keystroke before analysing. */
     debounceMs: z.number().int().min(0).max(5000).default(60),
+    /**
+     * Milliseconds typing must pause before a new finding at the place typed is shown (a value or
+     * word half typed: see core/service/typing.ts); 0 shows every finding at once.
+     */
+    typingPauseMs: z.number().int().min(0).max(10000).default(1000),
     /** Notes larger than this (KiB) are not analysed; the editor stays responsive. */
     // At most 4 MB: a hostile note of that size (bare `@` lines, each a timepoint with a finding)
     // would take the server to about 3.3 GB; its analysis is dropped once it outgrows the heap
@@ -81,6 +86,7 @@ export function readClientSettings(raw: unknown): { settings: ClientSettings; pr
   }
   const own = (key: string): unknown => (Object.prototype.hasOwnProperty.call(source, key) ? source[key] : undefined);
   const debounceMs = take('debounceMs', clientSettingsSchema.shape.debounceMs.unwrap(), own('debounceMs'));
+  const typingPauseMs = take('typingPauseMs', clientSettingsSchema.shape.typingPauseMs.unwrap(), own('typingPauseMs'));
   const maxNoteSizeKb = take('maxNoteSizeKb', clientSettingsSchema.shape.maxNoteSizeKb.unwrap(), own('maxNoteSizeKb'));
   // Only the keys the client wrote (validated one by one above): the defaults fill in later.
   const settings: ClientSettings = {
@@ -88,6 +94,7 @@ export function readClientSettings(raw: unknown): { settings: ClientSettings; pr
     analysis: analysis as Partial<Settings>,
     hints,
     ...(debounceMs !== undefined ? { debounceMs } : {}),
+    ...(typingPauseMs !== undefined ? { typingPauseMs } : {}),
     ...(maxNoteSizeKb !== undefined ? { maxNoteSizeKb } : {}),
   };
   const unknown = unknownCheckNames(settings.analysis.disabledChecks ?? []);
@@ -111,6 +118,7 @@ export interface EffectiveSettings {
   readonly analysis: Settings;
   readonly hints: ReadonlySet<HintCategory>;
   readonly debounceMs: number;
+  readonly typingPauseMs: number;
   readonly maxNoteBytes: number;
 }
 
@@ -121,7 +129,7 @@ export function effectiveSettings(client: ClientSettings, project: ParsedConfig 
     const on = project?.hints[c] ?? client.hints[c] ?? !HINTS_OFF_BY_DEFAULT.has(c);
     if (on) hints.add(c);
   }
-  return { analysis, hints, debounceMs: client.debounceMs, maxNoteBytes: client.maxNoteSizeKb * 1024 };
+  return { analysis, hints, debounceMs: client.debounceMs, typingPauseMs: client.typingPauseMs, maxNoteBytes: client.maxNoteSizeKb * 1024 };
 }
 
 /** A stable key for settings, so a session is rebuilt only when they change. */

@@ -20,3 +20,4 @@ export { completionsAt } from './complete';
 export { codeActions, codeActionSteps, keepsValues } from './actions';
 export { convertNoteUnits, convertNoteUnitSteps, type GasUnit } from './unit-conversion';
 export { documentSymbols, documentSymbolSteps, foldingRanges, OUTLINE_SECTION_LINES } from './symbols';
+export { heldWhileTyping, typedItem } from './typing';
