@@ -31,7 +31,7 @@ describe('the change since the previous arterial gas, in hovers', () => {
     for (const value of ['po2 6|0', 'pco2 4|6', 'ph 7.3|4']) {
       const md = hoverMarkdown(NOTE.replace(value.replace('|', ''), value));
       expect(md).toContain(CHANGE);
-      expect(md).toContain("PaO2, PaCO2 and pH are compared only where stated at each gas's own timepoint; FiO2, PEEP and P/F as in force at each gas.");
+      expect(md).toContain("PaO2, PaCO2 and pH are compared only where stated at each gas's own timepoint; P/F and the settings (FiO2, O2 flow, PEEP, IPAP, EPAP, CPAP) as in force at each gas, and the oxygen device where it changed.");
     }
   });
 
@@ -57,6 +57,15 @@ describe('the change since the previous arterial gas, in hovers', () => {
     const first = hints.filter((h) => h.position.line === 3 && h.derivedIds.includes('pf_ratio'));
     expect(first).toHaveLength(1);
     expect(first[0]!.tooltipMarkdown).not.toContain('Since the previous arterial gas');
+  });
+
+  it('on a cannula, gives the FiO2 estimated from its flow, and says what est means', () => {
+    // Nasal cannula FiO2 ≈ 0.21 + 0.04 per L/min (common practice, no source): 0.29 at 2 L/min, 0.37 at 4.
+    const note = '@ day 1 08:00\noxygen cannula 2 L/min\nabg ph 7.40, pco2 41, po2 62\n@ day 1 10:00\noxygen cannula 4 L/min\nabg ph 7.39, pco2 42, po2 7|0\n';
+    const md = hoverMarkdown(note);
+    expect(md).toContain('FiO2 est up 0.08 (was 0.29 est) · O2 flow up 2.0 L/min (was 2.0).');
+    expect(md).toContain("An FiO2 marked est is a cannula's or simple mask's, estimated from its flow (a rough rule; not used for P/F).");
+    expect(hoverMarkdown(NOTE.replace('po2 60', 'po2 6|0'))).not.toContain('marked est');
   });
 
   it('escapes the note’s label as markdown', () => {

@@ -154,7 +154,7 @@ describe('hovers in a kPa note', () => {
     expect(md).toContain('- P/F ratio (P/F): **28.2 kPa (212 mmHg)**');
     // PiO2 0.28 × (760 − 47) = 199.6 mmHg = 26.6 kPa (alveolar gas equation; UCUM for the kPa).
     expect(ucumKpa(0.28 * (760 - 47))).toBeCloseTo(26.6, 1);
-    expect(md).toContain('- Inspired PO2 (PiO2): **26.6 kPa (200 mmHg)**');
+    expect(md).toContain('- Inspired PO2 of humidified gas (PiO2): **26.6 kPa (200 mmHg)**');
   });
 });
 

@@ -64,8 +64,9 @@ time, its label and its line number) with
   carried    values in force from an earlier timepoint, with the line they were stated on
   derived    values computed from those in force
   change     at an arterial gas, each value against the previous arterial gas (PaO2, PaCO2, pH,
-             P/F, FiO2, PEEP): the difference and what it was; gas values only where stated at
-             both gases, settings and P/F as in force (* where a setting was carried)
+             P/F; FiO2, O2 flow, PEEP, IPAP, EPAP, CPAP; the oxygen device where it changed): the
+             difference and what it was; gas values only where stated at both gases, settings
+             and P/F as in force (* where a setting was carried; FiO2 est, a low-flow estimate)
   withheld   values a finding keeps back (e.g. P/F when PaO2 is above the alveolar PO2), with why
   n/a        values whose formula does not hold here, though their inputs are (e.g. the upper
              normal A–a gradient of a child), with why

@@ -1,5 +1,5 @@
 /** Derived values, the change since the previous arterial gas, missing inputs and interpretations under a timepoint. */
-import { gasChangeText, type GasChange } from '../core/gas-change';
+import { changeUsesCarried, gasChangeText, type GasChange } from '../core/gas-change';
 import type { Timepoint } from '../core/analysis/model';
 import { isGasPressureValue, type TimepointDerivation } from '../core/derive/model';
 import { derivedDef, withheldByReason } from '../core/derive/registry';
@@ -22,7 +22,7 @@ export function renderDerived(tp: Timepoint, d: TimepointDerivation | undefined,
     const text = gasChangeText(change);
     if (text === null) return;
     legend.mark('change');
-    if (change!.changes.some((c) => c.carried)) legend.mark('carried');
+    if (changeUsesCarried(change!)) legend.mark('carried');
     lines.push(`  ${p.green('change'.padEnd(8))} ${visible(text)}`);
   };
   const kpa = showsKpa(tp);

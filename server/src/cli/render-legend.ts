@@ -23,7 +23,7 @@ const MARK_TEXT: Readonly<Record<Mark, readonly [string, string]>> = {
   'unit-doubt': ['… ?', 'a bare number whose unit is in doubt, as written; (if unit: …) is its value if meant in that unit'],
   'unreadable-line': ['? …', 'a line Pneumark could not read as a section line; the finding under it says why'],
   start: ['@ (start)', 'a timepoint without a time: what was measured before the note\'s first @ line'],
-  change: ['change', 'at an arterial gas, each value against the previous arterial gas: its difference (of the numbers as shown) and what it was; PaO2, PaCO2 and pH only where stated at both gases\' own timepoints, never a carried one; FiO2, PEEP and P/F as in force at each gas (* where a setting was carried)'],
+  change: ['change', 'at an arterial gas, each value against the previous arterial gas: its difference (of the numbers as shown) and what it was; PaO2, PaCO2 and pH only where stated at both gases\' own timepoints, never a carried one; P/F and the settings (FiO2, O2 flow, PEEP, IPAP, EPAP, CPAP) as in force at each gas, and the oxygen device where it changed (* where a setting was carried); FiO2 est, a cannula\'s or simple mask\'s FiO2 estimated from its flow where none is stated, room air 0.21'],
   finding: ['PNnnn (l:c)', 'a finding\'s check code and its line:column; `pneumark docs` explains every code'],
 };
 

@@ -1,15 +1,22 @@
 /**
  * The change since the previous arterial gas, for a reader at the bedside: for a timepoint with an
  * arterial gas (a PaO2, a PaCO2 or a pH stated there), the nearest earlier timepoint with one, and
- * for PaO2, PaCO2, pH, the P/F ratio and the FiO2 and PEEP of each gas, the earlier value and the
- * difference, with the time between the two where both times are known.
+ * for PaO2, PaCO2, pH, the P/F ratio and the settings of each gas (its FiO2, oxygen flow, PEEP, and
+ * the IPAP, EPAP or CPAP level of non-invasive support), the earlier value and the difference, with
+ * the time between the two where both times are known; and the oxygen device, where it changed.
  *
  * The gas values (PaO2, PaCO2, pH) are compared only where stated at each gas's own timepoint: a
  * carried value is no new measurement. The settings each gas was taken on (FiO2, PEEP) are those in
  * force there, stated or carried from an earlier timepoint, and the P/F ratio is the one computed
  * there from a PaO2 stated there: a setting that was not restated is still the one the patient was on, and a ratio computed
  * with it is the ratio the reader sees beside the gas. Such a value is marked `carried` (`*`, as a
- * derived value computed with a carried value is in `pneumark show`). Arithmetic and description
+ * derived value computed with a carried value is in `pneumark show`).
+ *
+ * The pressures compared are those the device in force gives (`noninvasiveSupport`: the IPAP and
+ * EPAP of NIV, the level of CPAP; one it does not give, PN318, is used nowhere and compared neither).
+ * Where no FiO2 is in force, the FiO2 compared is room air's 0.21 under a room-air line, or a
+ * cannula's or a simple mask's estimate from its flow (the rule of `fio2_estimated`), marked as an
+ * estimate (`FiO2 est up 0.08 (was 0.29 est)`): never used for the P/F ratio, only compared. Arithmetic and description
  * only ("up", "down", "unchanged"): no word judges a change, as no published threshold is applied.
  *
  * Worked out only when asked (a hover, `pneumark show`): checking a note never computes it.
@@ -20,18 +27,24 @@ import type { Timepoint } from './analysis/model';
 import type { NoteResult } from './check-note';
 import { derivedValueOf } from './derive/registry';
 import { fieldById } from './fields/registry';
+import { deviceInForce, noninvasiveSupport, supportOfPressure } from './analysis/noninvasive-support';
+import { fio2EstimateLowFlow } from './physiology/oxygen-transport';
+import { fio2InForce } from './derive/context';
 import { KPA_DECIMALS, kpaFromMmhg, timeText } from './present';
 import { trendGasUnit, type TrendGasUnit } from './trends';
 import { formatNumber } from './util/format';
 
 /** What is compared, in the order it is listed. */
-export const CHANGE_KEYS = ['pao2', 'paco2', 'ph', 'pf_ratio', 'fio2', 'peep'] as const;
+export const CHANGE_KEYS = ['pao2', 'paco2', 'ph', 'pf_ratio', 'fio2', 'o2_flow', 'peep', 'ipap', 'epap', 'cpap_level'] as const;
 export type ChangeKey = (typeof CHANGE_KEYS)[number];
 
 /** The gas values whose statement at a timepoint makes it an arterial gas timepoint. */
 const GAS_KEYS = ['pao2', 'paco2', 'ph'] as const;
 
-export type ChangeUnit = TrendGasUnit | 'pH' | 'fraction' | 'cmH2O';
+export type ChangeUnit = TrendGasUnit | 'pH' | 'fraction' | 'cmH2O' | 'L/min';
+
+/** The keys compared as they were before the settings: the gas values and the ratio. */
+const GAS_VALUE_KEYS: ReadonlySet<ChangeKey> = new Set(['pao2', 'paco2', 'ph', 'pf_ratio']);
 
 /** One value at both gases, in the unit it is shown in (`unit`), with the decimals it is shown with. */
 export interface ValueChange {
@@ -46,6 +59,18 @@ export interface ValueChange {
   readonly decimals: number;
   /** Whether either value was carried from an earlier timepoint, or computed with one (a P/F ratio with a carried FiO2). */
   readonly carried: boolean;
+  /** Whether the earlier value is an FiO2 estimated from a low-flow device's flow (only an FiO2 may be). */
+  readonly earlierEstimated: boolean;
+  /** Whether the later value is such an estimate. */
+  readonly laterEstimated: boolean;
+}
+
+/** The oxygen device in force at both gases (canonical device words), where it changed. */
+export interface DeviceChange {
+  readonly earlier: string;
+  readonly later: string;
+  /** Whether either device was carried from an earlier timepoint. */
+  readonly carried: boolean;
 }
 
 /** The change at one arterial gas timepoint since the previous one. */
@@ -58,6 +83,13 @@ export interface GasChange {
   readonly minutesBetween: number | null;
   /** The values at both gases (gas values stated there; settings and P/F in force there), in `CHANGE_KEYS` order; may be empty. */
   readonly changes: readonly ValueChange[];
+  /** The oxygen device, where one is in force at both gases and it differs; else null. */
+  readonly device: DeviceChange | null;
+}
+
+/** Whether any value of the change, or its device, was carried or computed with a carried value (`*`). */
+export function changeUsesCarried(change: GasChange): boolean {
+  return change.device?.carried === true || change.changes.some((c) => c.carried);
 }
 
 /** Whether a PaO2, a PaCO2 or a pH is stated, usable, at the timepoint. */
@@ -86,10 +118,25 @@ export function changeSincePreviousGas(result: NoteResult, index: number): GasCh
     const after = valueAt(result, tp, key, gasUnit);
     if (before === null || after === null) continue;
     const difference = roundTo(roundTo(after.value, after.decimals) - roundTo(before.value, after.decimals), after.decimals);
-    changes.push({ key, name: NAMES[key], earlier: before.value, later: after.value, difference, unit: after.unit, decimals: after.decimals, carried: before.carried || after.carried });
+    changes.push({ key, name: NAMES[key], earlier: before.value, later: after.value, difference, unit: after.unit, decimals: after.decimals, carried: before.carried || after.carried, earlierEstimated: before.estimated, laterEstimated: after.estimated });
   }
   const minutesBetween = tp.time.minutes !== null && earlier.time.minutes !== null ? tp.time.minutes - earlier.time.minutes : null;
-  return { timepoint: tp.index, from: { timepoint: earlier.index, label: earlier.label, time: timeText(earlier.time) }, minutesBetween, changes };
+  return { timepoint: tp.index, from: { timepoint: earlier.index, label: earlier.label, time: timeText(earlier.time) }, minutesBetween, changes, device: deviceChange(earlier, tp) };
+}
+
+/** The device of the oxygen line in force (stated or carried, not the header's), with whether it was carried. */
+function deviceAt(tp: Timepoint): { readonly word: string; readonly carried: boolean } | null {
+  const origin = tp.values.originOf('device');
+  if (origin !== 'here' && origin !== 'carried') return null;
+  const word = deviceInForce(tp.values);
+  return word === null ? null : { word, carried: origin === 'carried' };
+}
+
+function deviceChange(earlier: Timepoint, later: Timepoint): DeviceChange | null {
+  const before = deviceAt(earlier);
+  const after = deviceAt(later);
+  if (before === null || after === null || before.word === after.word) return null;
+  return { earlier: before.word, later: after.word, carried: before.carried || after.carried };
 }
 
 /**
@@ -108,7 +155,7 @@ function gasUnitOf(result: NoteResult): TrendGasUnit {
   return unit;
 }
 
-const NAMES: Readonly<Record<ChangeKey, string>> = { pao2: 'PaO2', paco2: 'PaCO2', ph: 'pH', pf_ratio: 'P/F', fio2: 'FiO2', peep: 'PEEP' };
+const NAMES: Readonly<Record<ChangeKey, string>> = { pao2: 'PaO2', paco2: 'PaCO2', ph: 'pH', pf_ratio: 'P/F', fio2: 'FiO2', o2_flow: 'O2 flow', peep: 'PEEP', ipap: 'IPAP', epap: 'EPAP', cpap_level: 'CPAP' };
 
 /** The number of a field stated at this timepoint (canonical unit), usable; null when none or when the value in force was carried or came from the header. */
 function statedHere(tp: Timepoint, id: string): number | null {
@@ -120,6 +167,7 @@ interface Shown {
   readonly unit: ChangeUnit;
   readonly decimals: number;
   readonly carried: boolean;
+  readonly estimated: boolean;
 }
 
 /** The number of a setting in force at this timepoint (canonical unit), stated there or carried in; null when none is, or when it comes from the header. */
@@ -139,18 +187,52 @@ function valueAt(result: NoteResult, tp: Timepoint, key: ChangeKey, gasUnit: Tre
     return gasPressure(pf.value, pf.decimals, gasUnit, pf.usesCarried);
   }
   const decimals = fieldById(key)?.decimals ?? 0;
-  if (key === 'fio2' || key === 'peep') {
+  if (key === 'fio2') return fio2At(tp, decimals);
+  if (key === 'o2_flow' || key === 'peep') {
     const setting = inForce(tp, key);
     if (setting === null) return null;
-    return { value: setting.value, unit: key === 'fio2' ? 'fraction' : 'cmH2O', decimals, carried: setting.carried };
+    return { value: setting.value, unit: key === 'o2_flow' ? 'L/min' : 'cmH2O', decimals, carried: setting.carried, estimated: false };
+  }
+  if (key === 'ipap' || key === 'epap' || key === 'cpap_level') {
+    // Only a pressure the device in force gives (PN318 reports one it does not, and nothing uses it).
+    const values = tp.values;
+    const support = noninvasiveSupport(deviceInForce(values), { has: (id) => values.numberOf(id) !== null });
+    if (support === null || supportOfPressure(key) !== support) return null;
+    const setting = inForce(tp, key);
+    return setting === null ? null : { value: setting.value, unit: 'cmH2O', decimals, carried: setting.carried, estimated: false };
   }
   const value = statedHere(tp, key);
   if (value === null) return null;
-  return key === 'ph' ? { value, unit: 'pH', decimals, carried: false } : gasPressure(value, decimals, gasUnit, false);
+  return key === 'ph' ? { value, unit: 'pH', decimals, carried: false, estimated: false } : gasPressure(value, decimals, gasUnit, false);
 }
 
+/**
+ * The FiO2 at a gas: the one in force (stated or carried); else under a room-air line 0.21; else a
+ * cannula's or a simple mask's estimate from its flow in force (`fio2EstimateLowFlow`, the rule of
+ * `fio2_estimated`), marked as an estimate; null when none of these is.
+ */
+function fio2At(tp: Timepoint, decimals: number): Shown | null {
+  const setting = inForce(tp, 'fio2');
+  if (setting !== null) return { value: setting.value, unit: 'fraction', decimals, carried: setting.carried, estimated: false };
+  const device = deviceAt(tp);
+  if (device === null) return null;
+  if (device.word === 'room air') {
+    // 0.21 as the calculations take it: none on a room-air line with an oxygen flow (PN310).
+    const air = fio2InForce(tp.values);
+    return air === null ? null : { value: air, unit: 'fraction', decimals, carried: device.carried, estimated: false };
+  }
+  if (device.word !== 'cannula' && device.word !== 'mask') return null;
+  const flow = inForce(tp, 'o2_flow');
+  const estimate = flow === null ? null : fio2EstimateLowFlow(device.word, flow.value);
+  if (estimate === null) return null;
+  return { value: estimate, unit: 'fraction', decimals: ESTIMATE_DECIMALS, carried: device.carried || flow!.carried, estimated: true };
+}
+
+/** The decimals an FiO2 estimate is shown with (`fio2_estimated`'s). */
+const ESTIMATE_DECIMALS = 2;
+
 function gasPressure(mmHg: number, decimals: number, gasUnit: TrendGasUnit, carried: boolean): Shown {
-  return gasUnit === 'kPa' ? { value: kpaFromMmhg(mmHg), unit: 'kPa', decimals: KPA_DECIMALS, carried } : { value: mmHg, unit: 'mmHg', decimals, carried };
+  return gasUnit === 'kPa' ? { value: kpaFromMmhg(mmHg), unit: 'kPa', decimals: KPA_DECIMALS, carried, estimated: false } : { value: mmHg, unit: 'mmHg', decimals, carried, estimated: false };
 }
 
 function roundTo(value: number, decimals: number): number {
@@ -162,14 +244,26 @@ function roundTo(value: number, decimals: number): number {
 
 /**
  * `PaO2 down 6 mmHg (was 88)`, `pH up 0.02 (was 7.31)`, `PEEP unchanged (8 cmH2O)`; with a `*` at
- * the end where a value was carried or computed with one (`FiO2 unchanged (0.60)*`).
+ * the end where a value was carried or computed with one (`FiO2 unchanged (0.60)*`). An FiO2
+ * estimated from a low-flow device says so: `FiO2 est` where the later one is, `est` after the
+ * earlier number where it is (`FiO2 up 0.06 (was 0.29 est)`).
  */
 export function valueChangeText(c: ValueChange): string {
   const unit = c.unit === 'pH' || c.unit === 'fraction' ? '' : ` ${c.unit}`;
-  const earlier = formatNumber(c.earlier, c.decimals);
+  const earlier = `${formatNumber(c.earlier, c.decimals)}${c.earlierEstimated ? ' est' : ''}`;
+  const name = c.laterEstimated ? `${c.name} est` : c.name;
   const mark = c.carried ? '*' : '';
-  if (c.difference === 0) return `${c.name} unchanged (${earlier}${unit})${mark}`;
-  return `${c.name} ${c.difference > 0 ? 'up' : 'down'} ${formatNumber(Math.abs(c.difference), c.decimals)}${unit} (was ${earlier})${mark}`;
+  if (c.difference === 0) return `${name} unchanged (${c.earlierEstimated ? `${formatNumber(c.earlier, c.decimals)}${unit} est` : `${earlier}${unit}`})${mark}`;
+  return `${name} ${c.difference > 0 ? 'up' : 'down'} ${formatNumber(Math.abs(c.difference), c.decimals)}${unit} (was ${earlier})${mark}`;
+}
+
+/** How a device is named on a change line: the note's canonical word, NIV, CPAP and HFNC in capitals. */
+const DEVICE_NAMES: Readonly<Record<string, string>> = { niv: 'NIV', cpap: 'CPAP', hfnc: 'HFNC' };
+
+/** `device now mask (was cannula)`, with a `*` where either device was carried in. */
+export function deviceChangeText(d: DeviceChange): string {
+  const named = (word: string) => DEVICE_NAMES[word] ?? word;
+  return `device now ${named(d.later)} (was ${named(d.earlier)})${d.carried ? '*' : ''}`;
 }
 
 /** `timepoint 2 (PEEP raised, day 2 02:00)`: the earlier gas's timepoint, counted from 1, with its label and time where the note gives them. */
@@ -199,7 +293,12 @@ export function betweenText(change: GasChange): string | null {
  * The label is the note's own text: escape it for where it is shown.
  */
 export function gasChangeText(change: GasChange | null): string | null {
-  if (change === null || change.changes.length === 0) return null;
+  if (change === null || (change.changes.length === 0 && change.device === null)) return null;
   const between = betweenText(change);
-  return `from ${fromText(change)}${between !== null ? `, ${between}` : ''}: ${change.changes.map(valueChangeText).join(' · ')}`;
+  // The gas values and P/F, then the device where it changed, then the settings.
+  const parts: string[] = [];
+  for (const c of change.changes) if (GAS_VALUE_KEYS.has(c.key)) parts.push(valueChangeText(c));
+  if (change.device !== null) parts.push(deviceChangeText(change.device));
+  for (const c of change.changes) if (!GAS_VALUE_KEYS.has(c.key)) parts.push(valueChangeText(c));
+  return `from ${fromText(change)}${between !== null ? `, ${between}` : ''}: ${parts.join(' · ')}`;
 }

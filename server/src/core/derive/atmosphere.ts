@@ -134,7 +134,7 @@ function waterVapourTerm(c: DeriveContext): Term | null {
 
 export const pio2 = defineDerived({
   id: 'pio2',
-  label: 'Inspired PO2',
+  label: 'Inspired PO2 of humidified gas',
   short: 'PiO2',
   unit: 'mmHg',
   decimals: 0,

@@ -356,6 +356,9 @@ export const sfRatioDef = defineDerived({
   },
 });
 
+/** The thresholds of the ROX index by the hours of high flow, each time the source gives (`roca-2019`). */
+const ROX_NOTES: ValueExtras = { notes: ['≥ 4.88 at 2, 6 or 12 h of high flow was associated with success; below 2.85 at 2 h, 3.47 at 6 h and 3.85 at 12 h with failure (Roca 2019)'] };
+
 export const roxIndexDef = defineDerived({
   id: 'rox_index',
   label: 'ROX index',
@@ -373,7 +376,7 @@ export const roxIndexDef = defineDerived({
     const fio2 = c.fio2();
     const rr: Term | null = c.field('rr', 'RR');
     if (!spo2 || !fio2 || !rr) return c.missing([spo2, c.needFor('spo2', 'spo2')], [fio2, c.fio2Need()], [rr, c.needFor('rr', 'rr')]);
-    return c.value(roxIndex(spo2.value, fio2.value, rr.value), [spo2, fio2, rr], { notes: ['at 12 h of high flow, ≥ 4.88 was associated with success and < 3.85 with failure (Roca 2019)'] });
+    return c.value(roxIndex(spo2.value, fio2.value, rr.value), [spo2, fio2, rr], ROX_NOTES);
   },
 });
 

@@ -1,5 +1,7 @@
 /** Derived values of oxygen transport, and the low-flow FiO2 estimate. */
 import { SOURCES, arterialO2Content, fio2EstimateLowFlow, meanArterialPressure, oxygenDelivery, type LowFlowDevice } from '../physiology';
+import { LOW_FLOW_RULE_RANGES_L_PER_MIN } from '../physiology/oxygen-transport';
+import { formatNumber } from '../util/format';
 import type { Timepoint } from '../analysis/model';
 import { formatStated } from '../present';
 import { defineDerived, type DeriveContext, type Outcome, type Term, type ValueExtras, type WordInForce } from './context';
@@ -119,12 +121,22 @@ export const fio2Estimated = defineDerived({
     const flow = c.field('o2_flow', 'flow');
     if (!flow) return c.missing([flow, c.needFor('o2_flow', 'flow')]);
     const value = fio2EstimateLowFlow(device.word, flow.value);
+    // A flow outside those the rough rule is quoted for gives no estimate, and says so (`show`'s n/a,
+    // hovers) rather than leaving the estimate out unexplained.
+    if (value === null) return { kind: 'na', reason: outsideRule(device.word, flow.value), explained: true };
     const formula = LOW_FLOW_FIO2_RULES[device.word].formula;
     // The device is an input as the flow is: the rule differs by device, so the estimate rests on it
     // (and where it is carried, hovers, `show` and PN326 see it so).
     return c.value(value, [wordTerm(device), flow], { estimate: true, formula, notes: ['a rough estimate: the true FiO2 depends on breathing pattern; not used for P/F or the A–a gradient'] });
   },
 });
+
+/** `the cannula rule is quoted for flows up to 6 L/min, not 8.0 L/min`: why a flow gives no estimate. */
+function outsideRule(device: LowFlowDevice, flowLPerMin: number): string {
+  const range = LOW_FLOW_RULE_RANGES_L_PER_MIN[device];
+  const flows = range.minExclusive && range.min === 0 ? `up to ${range.max} L/min` : `from ${range.min} to ${range.max} L/min`;
+  return `the ${LOW_FLOW_FIO2_RULES[device].device} rule is quoted for flows ${flows}, not ${formatNumber(flowLPerMin, 1)} L/min`;
+}
 
 /** A word value in force as a formula input (no number: `Term.word`), under its key. */
 function wordTerm(w: WordInForce): Term {

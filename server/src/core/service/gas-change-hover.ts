@@ -3,7 +3,7 @@
  * P/F ratio's tooltip, the hover of a value on an arterial gas line and that of a timepoint line.
  */
 import type { NoteResult } from '../check-note';
-import { changeSincePreviousGas, gasChangeText } from '../gas-change';
+import { changeSincePreviousGas, changeUsesCarried, gasChangeText } from '../gas-change';
 import { escapeMarkdown } from './markdown';
 
 /**
@@ -16,6 +16,7 @@ export function gasChangeParagraph(result: NoteResult, timepoint: number): strin
   const change = changeSincePreviousGas(result, timepoint);
   const text = gasChangeText(change);
   if (text === null) return null;
-  const carried = change!.changes.some((c) => c.carried) ? ' A value marked \\* is a setting carried from an earlier timepoint, or a ratio computed with one.' : '';
-  return `**Since the previous arterial gas**: ${escapeMarkdown(text)}.  \n_PaO2, PaCO2 and pH are compared only where stated at each gas's own timepoint; FiO2, PEEP and P/F as in force at each gas.${carried}_`;
+  const carried = changeUsesCarried(change!) ? ' A value marked \\* is a setting carried from an earlier timepoint, or a ratio computed with one.' : '';
+  const estimate = change!.changes.some((c) => c.earlierEstimated || c.laterEstimated) ? " An FiO2 marked est is a cannula's or simple mask's, estimated from its flow (a rough rule; not used for P/F)." : '';
+  return `**Since the previous arterial gas**: ${escapeMarkdown(text)}.  \n_PaO2, PaCO2 and pH are compared only where stated at each gas's own timepoint; P/F and the settings (FiO2, O2 flow, PEEP, IPAP, EPAP, CPAP) as in force at each gas, and the oxygen device where it changed.${estimate}${carried}_`;
 }
