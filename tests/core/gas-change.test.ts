@@ -187,11 +187,13 @@ describe('the change since the previous arterial gas, on oxygen therapy outside 
     expect(change.device).toEqual({ earlier: 'niv', later: 'hfnc', carried: false });
   });
 
-  it('says a change of device and compares the flow: "device now mask (was cannula)"', () => {
+  it('says a change of device, and gives each device\'s flow with no up or down: "device now mask (was cannula) · O2 flow 10.0 L/min (was 4.0)"', () => {
+    // A flow is no measure of support from one device to another (common practice, no source).
     // Cannula 4 L/min: 0.21 + 0.04 × 4 = 0.37; simple mask 10 L/min: 0.55 (the rules above).
     const text = gasAt('11:00', 'cannula 4 L/min', 'ph 7.39, pco2 42, po2 70') + gasAt('12:00', 'mask 10 L/min', 'ph 7.40, pco2 41, po2 78');
     const change = changeSincePreviousGas(checkNote(text), 1)!;
-    expect(gasChangeText(change)).toBe('from timepoint 1 (day 1 11:00), 1 h earlier: PaO2 up 8 mmHg (was 70) · PaCO2 down 1 mmHg (was 42) · pH up 0.01 (was 7.39) · device now mask (was cannula) · FiO2 est up 0.18 (was 0.37 est) · O2 flow up 6.0 L/min (was 4.0)');
+    expect(gasChangeText(change)).toBe('from timepoint 1 (day 1 11:00), 1 h earlier: PaO2 up 8 mmHg (was 70) · PaCO2 down 1 mmHg (was 42) · pH up 0.01 (was 7.39) · device now mask (was cannula) · FiO2 est up 0.18 (was 0.37 est) · O2 flow 10.0 L/min (was 4.0)');
+    expect(change.changes.find((c) => c.key === 'o2_flow')!.otherDevice).toBe(true);
   });
 
   it('gives a low-flow FiO2 estimate marked as one, also where the device is carried in', () => {
@@ -203,6 +205,7 @@ describe('the change since the previous arterial gas, on oxygen therapy outside 
     expect([fio2.earlier, fio2.later, fio2.difference, fio2.earlierEstimated, fio2.laterEstimated]).toEqual([0.25, 0.45, 0.2, true, true]);
     expect(second.device).toBeNull(); // the same device at both: not said
     expect(gasChangeText(second)).toContain('FiO2 est up 0.20 (was 0.25 est) · O2 flow up 5.0 L/min (was 1.0)');
+    expect(second.changes.find((c) => c.key === 'o2_flow')!.otherDevice).toBe(false);
     expect(gasChangeText(changeSincePreviousGas(result, 2))).toContain('FiO2 est unchanged (0.45 est)* · O2 flow unchanged (6.0 L/min)*');
   });
 
@@ -210,7 +213,7 @@ describe('the change since the previous arterial gas, on oxygen therapy outside 
     // Cannula 2 L/min: 0.29 (the rule above), then a Venturi mask at 35 %: up 0.06.
     const text = gasAt('06:00', 'cannula 2 L/min', 'ph 7.33, pco2 58, po2 54') + gasAt('07:00', 'venturi 35 % 8 L/min', 'ph 7.32, pco2 61, po2 66');
     const change = changeSincePreviousGas(checkNote(text), 1)!;
-    expect(gasChangeText(change)).toContain('device now venturi (was cannula) · FiO2 up 0.06 (was 0.29 est) · O2 flow up 6.0 L/min (was 2.0)');
+    expect(gasChangeText(change)).toContain('device now venturi (was cannula) · FiO2 up 0.06 (was 0.29 est) · O2 flow 8.0 L/min (was 2.0)');
   });
 
   it('says oxygen stopped and restarted, with room air as FiO2 0.21', () => {

@@ -63,6 +63,12 @@ export interface ValueChange {
   readonly earlierEstimated: boolean;
   /** Whether the later value is such an estimate. */
   readonly laterEstimated: boolean;
+  /**
+   * Whether the two values are an oxygen flow given by two different devices (a cannula's 4 L/min,
+   * a mask's 10): each is said, with no up or down, as a flow is no measure of support from one
+   * device to another.
+   */
+  readonly otherDevice: boolean;
 }
 
 /** The oxygen device in force at both gases (canonical device words), where it changed. */
@@ -112,16 +118,17 @@ export function changeSincePreviousGas(result: NoteResult, index: number): GasCh
   }
   if (earlier === null) return null;
   const gasUnit = gasUnitOf(result);
+  const device = deviceChange(earlier, tp);
   const changes: ValueChange[] = [];
   for (const key of CHANGE_KEYS) {
     const before = valueAt(result, earlier, key, gasUnit);
     const after = valueAt(result, tp, key, gasUnit);
     if (before === null || after === null) continue;
     const difference = roundTo(roundTo(after.value, after.decimals) - roundTo(before.value, after.decimals), after.decimals);
-    changes.push({ key, name: NAMES[key], earlier: before.value, later: after.value, difference, unit: after.unit, decimals: after.decimals, carried: before.carried || after.carried, earlierEstimated: before.estimated, laterEstimated: after.estimated });
+    changes.push({ key, name: NAMES[key], earlier: before.value, later: after.value, difference, unit: after.unit, decimals: after.decimals, carried: before.carried || after.carried, earlierEstimated: before.estimated, laterEstimated: after.estimated, otherDevice: key === 'o2_flow' && device !== null });
   }
   const minutesBetween = tp.time.minutes !== null && earlier.time.minutes !== null ? tp.time.minutes - earlier.time.minutes : null;
-  return { timepoint: tp.index, from: { timepoint: earlier.index, label: earlier.label, time: timeText(earlier.time) }, minutesBetween, changes, device: deviceChange(earlier, tp) };
+  return { timepoint: tp.index, from: { timepoint: earlier.index, label: earlier.label, time: timeText(earlier.time) }, minutesBetween, changes, device };
 }
 
 /** The device of the oxygen line in force (stated or carried, not the header's), with whether it was carried. */
@@ -246,13 +253,15 @@ function roundTo(value: number, decimals: number): number {
  * `PaO2 down 6 mmHg (was 88)`, `pH up 0.02 (was 7.31)`, `PEEP unchanged (8 cmH2O)`; with a `*` at
  * the end where a value was carried or computed with one (`FiO2 unchanged (0.60)*`). An FiO2
  * estimated from a low-flow device says so: `FiO2 est` where the later one is, `est` after the
- * earlier number where it is (`FiO2 up 0.06 (was 0.29 est)`).
+ * earlier number where it is (`FiO2 up 0.06 (was 0.29 est)`). A flow from another device is
+ * given as it is, with no up or down: `O2 flow 10.0 L/min (was 4.0)`.
  */
 export function valueChangeText(c: ValueChange): string {
   const unit = c.unit === 'pH' || c.unit === 'fraction' ? '' : ` ${c.unit}`;
   const earlier = `${formatNumber(c.earlier, c.decimals)}${c.earlierEstimated ? ' est' : ''}`;
   const name = c.laterEstimated ? `${c.name} est` : c.name;
   const mark = c.carried ? '*' : '';
+  if (c.otherDevice) return `${name} ${formatNumber(c.later, c.decimals)}${unit} (was ${earlier})${mark}`;
   if (c.difference === 0) return `${name} unchanged (${c.earlierEstimated ? `${formatNumber(c.earlier, c.decimals)}${unit} est` : `${earlier}${unit}`})${mark}`;
   return `${name} ${c.difference > 0 ? 'up' : 'down'} ${formatNumber(Math.abs(c.difference), c.decimals)}${unit} (was ${earlier})${mark}`;
 }
