@@ -104,8 +104,20 @@ describe('a stated gas pressure is quoted back as it was written', () => {
 describe('lists in messages read as sentences', () => {
   it('the units a field takes are a choice: "mmHg or kPa"', () => {
     expect(messages('abg po2 71 mmhgg', 'PN202')).toEqual(['`mmhgg` is not a unit Pneumark knows; PaO2 takes mmHg or kPa.']);
-    expect(messages('vitals temp 37 mmHg', 'PN203')).toEqual(['Temperature is not measured in mmHg; it takes C or F.']);
-    expect(messages('vitals hr 80 mmHg', 'PN203')).toEqual(['Heart rate is not measured in mmHg; it takes /min.']);
+    expect(messages('vitals temp 37 mmHg', 'PN203')).toEqual(['Temperature is not measured in `mmHg`; it takes C or F.']);
+    expect(messages('vitals hr 80 mmHg', 'PN203')).toEqual(['Heart rate is not measured in `mmHg`; it takes /min.']);
+  });
+
+  it('a unit the field does not take is named as the note spells it, not by the unit it was read as', () => {
+    // `day` is the unit d, `bpm` /min, `celsius` C, `mbar` read as hPa for a blood pressure: the
+    // message quoted the unit's name (`not measured in d`), which the note does not hold.
+    expect(messages('vitals hr 80 day', 'PN203')).toEqual(['Heart rate is not measured in `day`; it takes /min.']);
+    expect(messages('vitals temp 37 bpm', 'PN203')).toEqual(['Temperature is not measured in `bpm`; it takes C or F.']);
+    expect(messages('vitals rr 20 celsius', 'PN203')).toEqual(['Respiratory rate is not measured in `celsius`; it takes /min.']);
+    expect(messages('vitals bp 120/80 mbar', 'PN203')).toEqual(['Blood pressure is not measured in `mbar`; it takes mmHg.']);
+    expect(messages('oxygen fio2 40 %sat', 'PN203')).toEqual(['FiO2 is not measured in `%sat`; it takes fraction or %.']);
+    expect(messages('vitals map 90 mm Hg', 'PN203')).toEqual([]);
+    expect(messages('labs na 140 kPa', 'PN203')).toEqual(['Sodium is not measured in `kPa`; it takes mmol/L or mEq/L.']);
   });
 });
 

@@ -748,7 +748,9 @@ function unitNotAllowedIssue(item: ItemNode, field: FieldDef, line: number, cand
     check: 'unit-not-allowed',
     line,
     span: unit.span,
-    message: `${field.label} is not measured in ${candidates[0] ? displayUnit(candidates[0].id) : unit.text}; it takes ${wordList(allowed, 'or')}.`,
+    // The unit as the note spells it (`day`, `bpm`, `mbar`), quoted: the unit it was read as has
+    // a name of its own (`d`, `/min`, `hPa`) that the note may not hold.
+    message: `${field.label} is not measured in \`${unit.text}\`; it takes ${wordList(allowed, 'or')}.`,
     fixes,
   };
 }
