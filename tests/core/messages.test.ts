@@ -119,6 +119,15 @@ describe('lists in messages read as sentences', () => {
     expect(messages('vitals map 90 mm Hg', 'PN203')).toEqual([]);
     expect(messages('labs na 140 kPa', 'PN203')).toEqual(['Sodium is not measured in `kPa`; it takes mmol/L or mEq/L.']);
   });
+
+  it('a pH, which has no unit, is not said to take one: not the unit name `ph`, which no note writes; the fix removes the unit written', () => {
+    // It said "pH (arterial) is not measured in mmHg; it takes ph." and offered "Change to ph".
+    const [f] = checkNote('@ 08:00\nabg ph 7.4 mmHg, pco2 40').findings.filter((x) => x.code === 'PN203');
+    expect(f?.message).toBe('pH (arterial) is not measured in `mmHg`; it is written without a unit.');
+    expect(f?.fixes.map((x) => x.title)).toEqual(['Remove `mmHg`']);
+    expect(f?.fixes[0]?.edits.map((e) => [e.range.start.character, e.range.end.character, e.newText])).toEqual([[10, 15, '']]);
+    expect(messages('@ 08:00\nvbg ph 7.35 kPa', 'PN203')).toEqual(['pH (venous) is not measured in `kPa`; it is written without a unit.']);
+  });
 });
 
 describe('privacy messages', () => {
