@@ -39,7 +39,7 @@ describe('a unit the field never takes (PN203): the fixes offer only units the n
     const text = '@ 08:00\nvitals temp 37 mmHg';
     const [f] = pn203(text);
     // The message still names every unit the field takes.
-    expect(f?.message).toBe('Temperature is not measured in mmHg; it takes C or F.');
+    expect(f?.message).toBe('Temperature is not measured in `mmHg`; it takes C or F.');
     expect(f?.fixes.map((x) => x.title)).toEqual(['Change to C']);
     const fixed = applyEdits(text, f!.fixes[0]!.edits);
     expect(checkNote(fixed).findings.map((x) => x.code)).toEqual([]);

@@ -104,8 +104,29 @@ describe('a stated gas pressure is quoted back as it was written', () => {
 describe('lists in messages read as sentences', () => {
   it('the units a field takes are a choice: "mmHg or kPa"', () => {
     expect(messages('abg po2 71 mmhgg', 'PN202')).toEqual(['`mmhgg` is not a unit Pneumark knows; PaO2 takes mmHg or kPa.']);
-    expect(messages('vitals temp 37 mmHg', 'PN203')).toEqual(['Temperature is not measured in mmHg; it takes C or F.']);
-    expect(messages('vitals hr 80 mmHg', 'PN203')).toEqual(['Heart rate is not measured in mmHg; it takes /min.']);
+    expect(messages('vitals temp 37 mmHg', 'PN203')).toEqual(['Temperature is not measured in `mmHg`; it takes C or F.']);
+    expect(messages('vitals hr 80 mmHg', 'PN203')).toEqual(['Heart rate is not measured in `mmHg`; it takes /min.']);
+  });
+
+  it('a unit the field does not take is named as the note spells it, not by the unit it was read as', () => {
+    // `day` is the unit d, `bpm` /min, `celsius` C, `mbar` read as hPa for a blood pressure: the
+    // message quoted the unit's name (`not measured in d`), which the note does not hold.
+    expect(messages('vitals hr 80 day', 'PN203')).toEqual(['Heart rate is not measured in `day`; it takes /min.']);
+    expect(messages('vitals temp 37 bpm', 'PN203')).toEqual(['Temperature is not measured in `bpm`; it takes C or F.']);
+    expect(messages('vitals rr 20 celsius', 'PN203')).toEqual(['Respiratory rate is not measured in `celsius`; it takes /min.']);
+    expect(messages('vitals bp 120/80 mbar', 'PN203')).toEqual(['Blood pressure is not measured in `mbar`; it takes mmHg.']);
+    expect(messages('oxygen fio2 40 %sat', 'PN203')).toEqual(['FiO2 is not measured in `%sat`; it takes fraction or %.']);
+    expect(messages('vitals map 90 mm Hg', 'PN203')).toEqual([]);
+    expect(messages('labs na 140 kPa', 'PN203')).toEqual(['Sodium is not measured in `kPa`; it takes mmol/L or mEq/L.']);
+  });
+
+  it('a pH, which has no unit, is not said to take one: not the unit name `ph`, which no note writes; the fix removes the unit written', () => {
+    // It said "pH (arterial) is not measured in mmHg; it takes ph." and offered "Change to ph".
+    const [f] = checkNote('@ 08:00\nabg ph 7.4 mmHg, pco2 40').findings.filter((x) => x.code === 'PN203');
+    expect(f?.message).toBe('pH (arterial) is not measured in `mmHg`; it is written without a unit.');
+    expect(f?.fixes.map((x) => x.title)).toEqual(['Remove `mmHg`']);
+    expect(f?.fixes[0]?.edits.map((e) => [e.range.start.character, e.range.end.character, e.newText])).toEqual([[10, 15, '']]);
+    expect(messages('@ 08:00\nvbg ph 7.35 kPa', 'PN203')).toEqual(['pH (venous) is not measured in `kPa`; it is written without a unit.']);
   });
 });
 

@@ -128,6 +128,39 @@ describe('the vital-signs profile of FHIR R4', () => {
     expect([...units].sort()).toEqual(expect.arrayContaining(['%', '/min', 'Cel', 'cm', 'kg', 'mm[Hg]']));
   });
 
+  it('so does every Observation in the vital-signs category, whatever its code: a consumer that asks for the vital signs by category reads it as one', () => {
+    // A category of vital-signs says the value is one; a server or a reader that selects vital
+    // signs by category (`Observation?category=vital-signs`) applies the profile to what it
+    // finds. Cardiac output (8741-1, L/min) was there: no code of the profile [CODES] and a unit
+    // outside its units [UNITS].
+    const inCategory = (bundle: Json) => list(bundle.entry).map((e) => obj(e.resource)).filter((r) => r.resourceType === 'Observation' && list(r.category).flatMap((c) => list(c.coding)).some((c) => c.system === CATEGORY_SYSTEM && c.code === 'vital-signs'));
+    let checkedCount = 0;
+    for (const { path, result } of notes) {
+      for (const options of [noAnchor, withAnchor]) {
+        const bundle = obj(JSON.parse(JSON.stringify(toFhirBundle(path, result, options))));
+        const urls = new Map(list(bundle.entry).map((e) => [String(e.fullUrl), obj(e.resource)]));
+        for (const o of inCategory(bundle)) {
+          checkedCount++;
+          expect(vitalSignProblems(o, urls), `${path} ${String(o.id)} ${JSON.stringify(options)}`).toEqual([]);
+        }
+      }
+    }
+    expect(checkedCount).toBeGreaterThan(100);
+    const bundle = obj(JSON.parse(JSON.stringify(toFhirBundle('a.pneu', checked('@ day 1 08:00\nvitals hr 90, co 5.2, etco2 38'), withAnchor))));
+    const byId = new Map(list(bundle.entry).map((e) => obj(e.resource)).map((r) => [String(r.id), r]));
+    const categoriesOf = (id: string) => list(byId.get(id)!.category).flatMap((c) => codesOf(c));
+    expect(categoriesOf('obs-0-hr')).toEqual(['vital-signs']);
+    // Cardiac output: not one of FHIR's vital signs, nor a laboratory value, a setting, an image or
+    // an examination finding; the note does not say how it was measured (a catheter's
+    // thermodilution, a pulse-contour monitor, an echocardiogram), so no category is claimed, as
+    // for the values read off a ventilator. Its LOINC code stays.
+    expect(categoriesOf('obs-0-cardiac-output')).toEqual([]);
+    expect(codesOf(byId.get('obs-0-cardiac-output')!.code)).toEqual(['8741-1']);
+    // End-tidal CO2 stays a vital sign: its unit is one of the profile's, and no code of the
+    // profile names it (the code binding is extensible).
+    expect(categoriesOf('obs-0-etco2')).toEqual(['vital-signs']);
+  });
+
   it('the check finds what the profile refuses (it is not vacuous)', () => {
     const bundle = obj(JSON.parse(JSON.stringify(toFhirBundle('a.pneu', checked('@ day 1 08:00\nvitals hr 90 temp 37.2'), noAnchor))));
     const urls = new Map(list(bundle.entry).map((e) => [String(e.fullUrl), obj(e.resource)]));

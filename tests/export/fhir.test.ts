@@ -374,7 +374,7 @@ describe('a ventilated note (codes of the MII ICU module)', () => {
     expect(byId(b, 'obs-0-insp-flow')?.valueQuantity).toEqual({ value: 60, unit: 'L/min', system: 'http://unitsofmeasure.org', code: 'L/min' });
   });
 
-  it('end-tidal CO2 has one code and the vital-signs category on a vitals line and on a vent line, in mmHg; cardiac output is a vital sign', () => {
+  it('end-tidal CO2 has one code and the vital-signs category on a vitals line and on a vent line, in mmHg; cardiac output keeps its code and has no category', () => {
     for (const id of ['obs-0-etco2', 'obs-1-etco2']) {
       expect(coding(id), id).toEqual([{ system: 'http://loinc.org', code: '19891-1', display: 'Carbon dioxide [Partial pressure] in Exhaled gas --at end expiration' }]);
       expect(category(id), id).toBe('vital-signs');
@@ -382,7 +382,9 @@ describe('a ventilated note (codes of the MII ICU module)', () => {
     expect(byId(b, 'obs-1-etco2')?.valueQuantity?.value).toBeCloseTo(5.1 * (1000 / 133.322387415), 9);
     expect(byId(b, 'obs-1-etco2')?.valueQuantity?.code).toBe('mm[Hg]');
     expect(coding('obs-0-cardiac-output')).toEqual([{ system: 'http://loinc.org', code: '8741-1', display: 'Left ventricular Cardiac output' }]);
-    expect(category('obs-0-cardiac-output')).toBe('vital-signs');
+    // Not one of FHIR R4's vital signs (8741-1 is none of the profile's codes, L/min none of its units).
+    expect(category('obs-0-cardiac-output')).toBeUndefined();
+    expect(byId(b, 'obs-0-cardiac-output')?.category).toBeUndefined();
   });
 
   it('a flow written under a mode that sets none (PS) was measured: exported without the setting code', () => {
@@ -426,27 +428,27 @@ describe('a ventilated note (codes of the MII ICU module)', () => {
 });
 
 describe('categories', () => {
-  it('vital signs, laboratory or therapy by the field section; none for age', () => {
+  it('vital signs, laboratory or therapy by the field section; none for age and cardiac output', () => {
     const of = (id: string) => observationCategory(FIELDS.find((f) => f.id === id)!);
-    expect(['hr', 'rr', 'spo2', 'temp', 'bp', 'etco2', 'cardiac_output', 'height', 'weight'].map(of)).toEqual(Array(9).fill('vital-signs'));
+    expect(['hr', 'rr', 'spo2', 'temp', 'bp', 'etco2', 'height', 'weight'].map(of)).toEqual(Array(8).fill('vital-signs'));
     expect(['ph', 'paco2', 'pao2', 'sao2', 'pvo2', 'lactate', 'hb', 'na', 'albumin', 'glucose'].map(of)).toEqual(Array(10).fill('laboratory'));
     expect(['fio2', 'o2_flow', 'vt', 'peep', 'pressure_support', 'insp_flow', 'vent_rate', 'ipap', 'epap', 'cpap_level'].map(of)).toEqual(Array(10).fill('therapy'));
-    expect(['plateau', 'peak', 'mean_airway_pressure', 'minute_volume', 'age'].map(of)).toEqual(Array(5).fill(null));
+    expect(['plateau', 'peak', 'mean_airway_pressure', 'minute_volume', 'age', 'cardiac_output'].map(of)).toEqual(Array(6).fill(null));
   });
 
-  it('every field with a LOINC code has a category decided for it: none only for age and what is read off the ventilator', () => {
+  it('every field with a LOINC code has a category decided for it: none only for age, cardiac output and what is read off the ventilator', () => {
     // A field that gets a code must be added here with its category (a change shows in review).
     const decided = Object.fromEntries(FIELDS.filter((f) => loincCodesOf(f).length > 0).map((f) => [f.id, observationCategory(f)]));
     expect(decided).toEqual({
       age: null, height: 'vital-signs', weight: 'vital-signs',
-      hr: 'vital-signs', rr: 'vital-signs', spo2: 'vital-signs', temp: 'vital-signs', bp: 'vital-signs', mean_bp: 'vital-signs', etco2: 'vital-signs', cardiac_output: 'vital-signs',
+      hr: 'vital-signs', rr: 'vital-signs', spo2: 'vital-signs', temp: 'vital-signs', bp: 'vital-signs', mean_bp: 'vital-signs', etco2: 'vital-signs', cardiac_output: null,
       o2_flow: 'therapy', fio2: 'therapy', vt: 'therapy', peep: 'therapy', pressure_support: 'therapy', insp_flow: 'therapy',
       plateau: null, peak: null, mean_airway_pressure: null,
       ph: 'laboratory', paco2: 'laboratory', pao2: 'laboratory', hco3: 'laboratory', base_excess: 'laboratory', sao2: 'laboratory',
       ph_venous: 'laboratory', pvco2: 'laboratory', pvo2: 'laboratory', hco3_venous: 'laboratory', svo2: 'laboratory',
       lactate: 'laboratory', hb: 'laboratory', na: 'laboratory', k: 'laboratory', cl: 'laboratory', hco3_serum: 'laboratory', albumin: 'laboratory', glucose: 'laboratory',
     });
-    for (const f of FIELDS) if (loincCodesOf(f).length > 0 && observationCategory(f) === null) expect(f.id === 'age' || f.reading === true, f.id).toBe(true);
+    for (const f of FIELDS) if (loincCodesOf(f).length > 0 && observationCategory(f) === null) expect(f.id === 'age' || f.id === 'cardiac_output' || f.reading === true, f.id).toBe(true);
   });
 });
 

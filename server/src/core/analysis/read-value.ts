@@ -733,6 +733,7 @@ function unknownUnitIssue(item: ItemNode, field: FieldDef, line: number): ReadIs
  */
 function unitNotAllowedIssue(item: ItemNode, field: FieldDef, line: number, candidates: readonly UnitDef[], written: number | null, lineItems: readonly ItemNode[]): ReadIssue {
   const unit = item.unit!;
+  if (field.unit === 'ph') return unitOnPhIssue(item, field, line);
   const allowed = (field.units ?? []).map(displayUnit);
   const possible = written === null ? [] : unitsWithin(field, written, null, field.hard).map((u) => displayUnit(u.id));
   const offered = possible.length > 0 ? possible : allowed;
@@ -748,8 +749,27 @@ function unitNotAllowedIssue(item: ItemNode, field: FieldDef, line: number, cand
     check: 'unit-not-allowed',
     line,
     span: unit.span,
-    message: `${field.label} is not measured in ${candidates[0] ? displayUnit(candidates[0].id) : unit.text}; it takes ${wordList(allowed, 'or')}.`,
+    // The unit as the note spells it (`day`, `bpm`, `mbar`), quoted: the unit it was read as has
+    // a name of its own (`d`, `/min`, `hPa`) that the note may not hold.
+    message: `${field.label} is not measured in \`${unit.text}\`; it takes ${wordList(allowed, 'or')}.`,
     fixes,
+  };
+}
+
+/**
+ * A unit written after a pH, which has none: the message says so rather than name the unit `ph`
+ * (the pH scale's name in the registry, which no note writes), and the fix removes the unit with
+ * the blanks before it (`ph 7.4 mmHg` → `ph 7.4`).
+ */
+function unitOnPhIssue(item: ItemNode, field: FieldDef, line: number): ReadIssue {
+  const unit = item.unit!;
+  const from = item.value ? item.value.span.end : unit.span.start;
+  return {
+    check: 'unit-not-allowed',
+    line,
+    span: unit.span,
+    message: `${field.label} is not measured in \`${unit.text}\`; it is written without a unit.`,
+    fixes: [{ title: `Remove \`${unit.text}\``, edits: [{ span: { start: from, end: unit.span.end }, newText: '' }] }],
   };
 }
 

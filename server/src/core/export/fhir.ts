@@ -91,9 +91,14 @@
  * one category whatever its line: sodium, potassium, chloride, glucose and lactate are laboratory
  * values on a blood gas line too, and end-tidal CO2 (first in vitals) is vital-signs on a vent line
  * too: it measures the patient's exhaled gas (its code names exhaled gas, not the ventilator), on a
- * monitor or on the ventilator alike, and is no setting. Cardiac output (vitals) is vital-signs:
- * haemodynamic monitoring of the patient, which the MII ICU module's cardiac output profile (the
- * page its code was read on) also derives from the vital-signs profile.
+ * monitor or on the ventilator alike, and is no setting; its unit (mm[Hg]) is one of the
+ * vital-signs profile's, whose code binding is extensible and has no code for it. Cardiac output
+ * (vitals) has no category: it is not one of FHIR's vital signs (its code, 8741-1, is none of the
+ * profile's, and L/min none of the profile's units, so a consumer that selects vital signs by
+ * category and applies the profile would refuse it), nor a laboratory value, a setting or an
+ * examination finding; and `procedure` (catheter thermodilution) or `imaging` (an echocardiogram)
+ * would name a method the note does not write. An Observation in the vital-signs category meets
+ * the profile whatever its code (tests/export/fhir-vital-signs.test.ts).
  *
  * Time: notes hold relative days and clock times only. With `anchor` (an ISO 8601 date-time with
  * seconds optional and a zone, `Z` or `±hh:mm`, meaning 00:00 of day 1, so its time must be
@@ -334,7 +339,10 @@ const CATEGORY_OF_SECTION: Readonly<Record<SectionId, ObservationCategory | null
  * pressure set in HFOV is a setting: therapy).
  */
 export function observationCategory(field: FieldDef, reading: boolean = field.reading === true): ObservationCategory | null {
-  if (field.id === 'age') return null;
+  // Age: no observation of the body's functions. Cardiac output: not one of FHIR's vital signs (its
+  // code is none of the profile's, L/min none of its units), and how it was measured is not
+  // written (see the header comment).
+  if (field.id === 'age' || field.id === 'cardiac_output') return null;
   const section = field.sections[0];
   const category = section ? CATEGORY_OF_SECTION[section] : null;
   // Plateau, peak and mean airway pressure, minute volume: read off the ventilator, not a setting.
