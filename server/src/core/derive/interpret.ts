@@ -710,6 +710,15 @@ function acidBaseText(cls: AcidBaseClassification, finding: ReadFinding, gas: Ga
     else if (phase === 'chronic') text += `, with HCO3 within the ${chronicRange} expected if chronic (${acuteRange} if acute)`;
     else if (phase === 'intermediate') text += `; ${hco3Against} is between the acute and chronic ranges (${acuteRange} if acute, ${chronicRange} if chronic): evolving, or acute on chronic`;
     else if (phase === 'acute-or-chronic') text += `; ${hco3Against} is within both the acute (${acuteRange}) and the chronic (${chronicRange}) range, which overlap here, so acute cannot be told from chronic`;
+    else if (phase === null) {
+      // Within a range, but beside a metabolic disorder the anion gap adds, which moves the HCO3 too.
+      const acid = finding.added.includes('metabolic-acidosis');
+      const alkali = finding.added.includes('metabolic-alkalosis');
+      if (acid || alkali) {
+        const moved = acid && alkali ? `${DISORDER_WORDS['metabolic-acidosis']} and ${DISORDER_WORDS['metabolic-alkalosis']} move` : acid ? `${DISORDER_WORDS['metabolic-acidosis']} lowers` : `${DISORDER_WORDS['metabolic-alkalosis']} raises`;
+        text += `; HCO3 ${formatNumber(o, HCO3_DECIMALS)} mmol/L does not tell acute from chronic, as the added ${moved} it too (${acuteRange} expected if acute, ${chronicRange} if chronic)`;
+      }
+    }
   }
   const extra = finding.added;
   if (extra.length > 0) {
