@@ -164,11 +164,11 @@ const CASES: readonly AuditCase[] = [
     readings: { 'acid-base': 'also consistent with an added metabolic alkalosis (delta ratio 2.75, above 2).' },
   },
   {
-    name: 'pH 7.45 with PaCO2 20 and a high anion gap: chronic respiratory alkalosis by the rules, with an added metabolic acidosis',
-    source: 'chronic alkalosis −4 to −5 mmol/L per 10 mmHg ± 2 (Narins & Emmett 1980; Adrogué & Madias 2010, from memory); anion gap normal 12 (common practice, no source)',
+    name: 'pH 7.45 with PaCO2 20 and a high anion gap: respiratory alkalosis with an added metabolic acidosis, which lowers the HCO3 too, so no timing is read from it',
+    source: 'chronic alkalosis −4 to −5 mmol/L per 10 mmHg ± 2, the HCO3 read as the response alone (Narins & Emmett 1980; Adrogué & Madias 2010, from memory); anion gap normal 12 (common practice, no source)',
     note: 'patient age 30 y\n@ 08:00\noxygen room air\nabg 7.45/20/105/13.5\nlabs na 140, cl 102',
     values: { anion_gap: [24.5, 9], delta_ratio: [12.5 / 10.5, 9] },
-    readings: { 'acid-base': 'with HCO3 within the 12–18 mmol/L expected if chronic (18–22 mmol/L if acute); also consistent with an added metabolic acidosis (anion gap 25 mmol/L, above 12 mmol/L).' },
+    readings: { 'acid-base': 'HCO3 13.5 mmol/L does not tell acute from chronic, as the added metabolic acidosis lowers it too (18–22 mmol/L expected if acute, 12–18 mmol/L if chronic); also consistent with an added metabolic acidosis (anion gap 25 mmol/L, above 12 mmol/L).' },
   },
   {
     name: 'mixed metabolic and respiratory alkalosis',

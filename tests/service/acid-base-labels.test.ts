@@ -76,8 +76,9 @@ const MMHG: readonly (readonly [string, string | null])[] = [
   ['abg 7.20/60/70/23', 'consistent with resp. acidosis + met. acidosis?'],
   // PaCO2 80: acute 26–30, chronic 36–46; HCO3 48 above both.
   ['abg 7.39/80/60/48', 'consistent with resp. acidosis + met. alkalosis?'],
-  // AG 140 − (95 + 26) = 19, high: an added metabolic acidosis.
-  ['abg 7.25/60/70/26\nlabs na 140, cl 95', 'consistent with resp. acidosis, acute + met. acidosis | AG 19'],
+  // AG 140 − (95 + 26) = 19, high: an added metabolic acidosis, which lowers the HCO3 too, so its
+  // timing is not read from the HCO3 (Narins & Emmett 1980 read the HCO3 as the response alone).
+  ['abg 7.25/60/70/26\nlabs na 140, cl 95', 'consistent with resp. acidosis + met. acidosis | AG 19'],
 
   // Respiratory alkalosis, PaCO2 25: acute 19–23, chronic 14.5–20 mmol/L.
   ['abg 7.56/25/95/22', 'consistent with resp. alkalosis, acute'],

@@ -382,6 +382,25 @@ function respondsToMetabolicAcidosis(g: GasFacts): boolean {
 
 const RESPONSE_TO_ACIDOSIS = 'the breathing\'s response to the metabolic acidosis (the acid–base reading compares it with the response expected)';
 
+/**
+ * A PaCO2 within its reference interval is not "normal ventilation" where the acid–base reading finds
+ * a primary metabolic disorder whose respiratory response it is outside of: above the range a
+ * metabolic acidosis calls for (Winters' formula: Albert, Dell & Winters 1967), an added respiratory
+ * acidosis, or below the range a metabolic alkalosis calls for (Berend et al. 2014), an added
+ * respiratory alkalosis. The words say so, as the acid–base reading does; '' where neither holds.
+ */
+function outsideMetabolicResponse(g: GasFacts): string {
+  const finding = g.acidBase;
+  if (finding === null) return '';
+  const [low, high] = NORMAL_LIMITS.paco2;
+  const within = `a PaCO2 within its reference range (${g.gas.range(low, high, g.paco2!.value, g.co2Resolution)})`;
+  if (finding.primary === 'metabolic-acidosis' && finding.suspected === 'respiratory-acidosis') return `${within} but above what the metabolic acidosis calls for: ventilation short of the response expected ${AGAINST_RESPONSE}`;
+  if (finding.primary === 'metabolic-alkalosis' && finding.suspected === 'respiratory-alkalosis') return `${within} but below what the metabolic alkalosis calls for: ventilation beyond the response expected ${AGAINST_RESPONSE}`;
+  return '';
+}
+
+const AGAINST_RESPONSE = '(the acid–base reading compares it with that response)';
+
 function ventilationText(g: GasFacts): string {
   const { gas, settings, co2Resolution } = g;
   const v = g.paco2!.value;
@@ -392,7 +411,7 @@ function ventilationText(g: GasFacts): string {
       ? `consistent with a mildly raised PaCO2, ${sideOf(v, hypercapniaAt, co2Resolution) === 0 ? `at the hypercapnia threshold of ${gas.on(hypercapniaAt, co2Resolution)}, not above it` : `below the hypercapnia threshold of ${gas.threshold(hypercapniaAt, v)}`}`
       : sideOf(v, settings.hypocapniaBelowMmhg, co2Resolution) < 0
         ? `consistent with hypocapnia (below ${gas.threshold(settings.hypocapniaBelowMmhg, v)}): ${respondsToMetabolicAcidosis(g) ? RESPONSE_TO_ACIDOSIS : 'ventilation above metabolic need'}`
-        : 'consistent with normal ventilation';
+        : `consistent with ${outsideMetabolicResponse(g) || 'normal ventilation'}`;
   return `PaCO2 ${gas.measured(v, co2Resolution, hypercapniaAt, UPPER_NORMAL_PACO2_MMHG, settings.hypocapniaBelowMmhg)}: ${text}.`;
 }
 
@@ -691,6 +710,15 @@ function acidBaseText(cls: AcidBaseClassification, finding: ReadFinding, gas: Ga
     else if (phase === 'chronic') text += `, with HCO3 within the ${chronicRange} expected if chronic (${acuteRange} if acute)`;
     else if (phase === 'intermediate') text += `; ${hco3Against} is between the acute and chronic ranges (${acuteRange} if acute, ${chronicRange} if chronic): evolving, or acute on chronic`;
     else if (phase === 'acute-or-chronic') text += `; ${hco3Against} is within both the acute (${acuteRange}) and the chronic (${chronicRange}) range, which overlap here, so acute cannot be told from chronic`;
+    else if (phase === null) {
+      // Within a range, but beside a metabolic disorder the anion gap adds, which moves the HCO3 too.
+      const acid = finding.added.includes('metabolic-acidosis');
+      const alkali = finding.added.includes('metabolic-alkalosis');
+      if (acid || alkali) {
+        const moved = acid && alkali ? `${DISORDER_WORDS['metabolic-acidosis']} and ${DISORDER_WORDS['metabolic-alkalosis']} move` : acid ? `${DISORDER_WORDS['metabolic-acidosis']} lowers` : `${DISORDER_WORDS['metabolic-alkalosis']} raises`;
+        text += `; HCO3 ${formatNumber(o, HCO3_DECIMALS)} mmol/L does not tell acute from chronic, as the added ${moved} it too (${acuteRange} expected if acute, ${chronicRange} if chronic)`;
+      }
+    }
   }
   const extra = finding.added;
   if (extra.length > 0) {

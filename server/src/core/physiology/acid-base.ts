@@ -223,7 +223,10 @@ export interface AcidBaseClassification {
    */
   readonly fullyCompensated: boolean;
   readonly expected: ExpectedCompensation | null;
-  /** Timing of a respiratory primary; `null` otherwise or when a second disorder blurs it. */
+  /**
+   * Timing of a respiratory primary; `null` otherwise or when a second disorder blurs it: an HCO3
+   * outside both expected ranges, or a metabolic disorder the anion gap adds, which moves the HCO3 too.
+   */
   readonly respiratoryChronicity: RespiratoryChronicity | null;
   /** Suspected further disorders beyond the primary finding. */
   readonly additional: readonly AcidBaseDisorder[];
@@ -657,7 +660,8 @@ function identifiedIn(d: AcidBaseDisorder, fromPrimary: readonly AcidBaseDisorde
  * 4. With an anion gap: a gap above 12 mmol/L adds a high-gap metabolic acidosis if none is
  *    identified yet; the delta ratio (`rastegar-2007`) refines it (< 0.8 also a normal-gap
  *    acidosis; > 2, or a high gap with HCO3 ≥ 24, a metabolic alkalosis unless a respiratory
- *    acidosis explains the high HCO3).
+ *    acidosis explains the high HCO3). A metabolic disorder so added beside a respiratory primary
+ *    moves the HCO3 too: no timing is read from it, and the gas is not called fully compensated.
  * 5. Internal consistency of reported HCO3 against Henderson–Hasselbalch (HCO3_CONSISTENCY_TOLERANCE).
  * The result is still given for an inconsistent gas; callers should show `consistency` first.
  * `null` unless 0 ≤ pH ≤ 14, PaCO2 > 0, HCO3 > 0, and a given anion gap is finite.
@@ -703,14 +707,19 @@ export function classifyAcidBase(input: AcidBaseInput): AcidBaseClassification |
   const disorders: AcidBaseDisorder[] = copyOf(fromPrimary);
   for (let i = 0; i < additional.length; i++) if (!disorders.includes(additional[i]!)) disorders.push(additional[i]!);
   const singlePrimary = fromPrimary.length === 1;
+  // A respiratory primary whose HCO3 fell in an expected range (a timing was read), beside a metabolic
+  // disorder the anion gap adds: that disorder moves the HCO3 too, so the HCO3 tells neither acute
+  // from chronic nor a compensation on its own (PaCO2 15 with HCO3 12 and a gap of 26 is a metabolic
+  // acidosis beside the respiratory alkalosis, not a chronic one).
+  const hco3MovedByGap = chronicity !== null && (additional.includes('metabolic-acidosis') || additional.includes('metabolic-alkalosis'));
 
   return {
     phStatus,
     primary,
     compensation,
-    fullyCompensated: phStatus === 'normal' && singlePrimary && compensation === 'appropriate' && compensatorMoved(primary, paco2, hco3, resolution),
+    fullyCompensated: phStatus === 'normal' && singlePrimary && compensation === 'appropriate' && !hco3MovedByGap && compensatorMoved(primary, paco2, hco3, resolution),
     expected,
-    respiratoryChronicity: chronicity,
+    respiratoryChronicity: hco3MovedByGap ? null : chronicity,
     additional,
     disorders,
     anionGap: anionGapFinding,
