@@ -18,6 +18,7 @@ import {
 import type { NoninvasiveSupport } from '../analysis/noninvasive-support';
 import { ADULT_FROM_YEARS, defineDerived, withDecimals, type DeriveContext, type Outcome, type Term, type ValueExtras } from './context';
 import { decimalsAgainst, formatAgeYears, formatShort } from '../util/format';
+import { modeFamily } from '../fields/modes';
 
 export const minuteVentilation = defineDerived({
   id: 'minute_ventilation',
@@ -223,16 +224,26 @@ export const airwayResistanceDef = defineDerived({
   source: SOURCES['respiratory-mechanics'],
   anchors: ['peak', 'plateau'],
   compute(c) {
-    const mode = c.word('mode');
-    if (mode && mode.word !== 'VC') return { kind: 'na', reason: 'holds only for constant-flow volume control (mode VC)' };
+    // The flow is set and constant in the volume family (VC, SIMV, SIMV-VC: fields/modes.ts), where a
+    // mandatory breath's peak exceeds its plateau by flow × resistance; elsewhere the flow decelerates.
+    // Said only where both pressures are written: a peak alone under PC asks for nothing.
     const peak = c.field('peak', 'Ppeak');
     const plat = c.field('plateau', 'Pplat');
-    const flow = c.field('insp_flow', 'flow');
     if (!peak || !plat) return { kind: 'na', reason: 'needs peak and plateau pressures' };
+    const mode = c.word('mode');
+    if (mode && modeFamily(mode.word) !== 'volume') return NOT_CONSTANT_FLOW;
+    const flow = c.field('insp_flow', 'flow');
     if (!flow) return c.missing([flow, c.needFor('insp_flow', 'flow (inspiratory flow, L/min)')]);
     return c.value(airwayResistance(peak.value, plat.value, flow.value), [peak, plat, flow]);
   },
 });
+
+/** Why the airway resistance is not worked out under a mode that sets no constant flow: shown where it would have been. */
+const NOT_CONSTANT_FLOW: Outcome = {
+  kind: 'na',
+  reason: 'holds only for a set, constant inspiratory flow (VC, SIMV, SIMV-VC), where the peak exceeds the plateau by flow × resistance',
+  explained: true,
+};
 
 export const mechanicalPower = defineDerived({
   id: 'mechanical_power',
