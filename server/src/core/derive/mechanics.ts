@@ -286,6 +286,8 @@ export const mechanicalPower = defineDerived({
  * -supported breaths (Becher 2019), whose own equations Pneumark does not use.
  */
 function notVolumeControl(mode: string): string {
+  // SIMV run volume-targeted: its mandatory breaths are VC's, the patient's breaths between them are not.
+  if (modeFamily(mode) === 'volume') return `${CONSTANT_FLOW_ONLY}in ${mode} the mandatory breaths are so, but the patient's own breaths between them are pressure-supported and the rate counts them too, and pressure-supported breaths need equations of their own (Becher T et al., Intensive Care Med 2019)`;
   return `${CONSTANT_FLOW_ONLY}in ${mode} the breaths are shaped otherwise, and pressure-controlled or -supported breaths need equations of their own (Becher T et al., Intensive Care Med 2019)`;
 }
 
