@@ -79,7 +79,6 @@ describe('Compliance no respiratory system gives (PN407)', () => {
     // Under pressure support or pressure control a breath the patient draws in may leave the peak at the PEEP.
     expect(pn407('@ 08:00\nvent mode PS, ps 0, peep 10, vt 450 mL, peak 10')).toEqual([]);
     expect(pn407('@ 08:00\nvent mode PC, pinsp 12, rate 14, peep 10, vt 450 mL, peak 10')).toEqual([]);
-    expect(pn407('@ 08:00\nvent mode PRVC, vt 450 mL, rate 14, peep 10, peak 10')).toEqual([]);
     expect(pn407('@ 08:00\nvent vt 450 mL, rate 14, peep 10, peak 10')).toEqual([]);
     expect(pn407('@ 08:00\nvent mode VC, vt 0 mL, rate 14, peep 10, peak 10')).toEqual([]);
     // A peak below the PEEP is PN314's.
@@ -106,5 +105,42 @@ describe('Compliance no respiratory system gives (PN407)', () => {
     expect(pn407('@ 08:00\nvent mode VC, vt 450 mL, rate 14, peep 10, peak 25')).toEqual([]);
     // Not under pressure support, where the patient's own effort moves the volume.
     expect(pn407('@ 08:00\nvent mode PS, ps 2, peep 10, vt 450 mL, peak 12')).toEqual([]);
+  });
+
+  // PRVC (fields/modes.ts, the adaptive family) sets the tidal volume as a target and raises the
+  // inspiratory pressure breath by breath until that volume goes in: in a passive patient the airway
+  // pressure must rise above the PEEP as under VC (respiratory mechanics, common practice, no source).
+  // It also lowers that pressure as the patient's own effort draws in more of the target (from
+  // memory), so a peak at or just above the PEEP may be a patient breathing the target alone with
+  // little or no support: the finding names that reading beside a transcription error.
+  it("fires on the peak under PRVC too, naming the patient's own effort as the other reading", () => {
+    expect(peakIssue('@ 08:00\nvent mode PRVC, vt 450 mL, rate 14, peep 10, peak 10')).toEqual([
+      "1:45 Peak pressure 10 cmH2O equals the PEEP with a target tidal volume of 450 mL under PRVC: in a passive patient the ventilator cannot deliver the volume without raising the pressure; consistent with a transcription error in the peak pressure or the PEEP, or with a patient drawing in the whole target volume with no support, since PRVC lowers its pressure as the patient's effort grows.",
+    ]);
+    // 450 ÷ (12 − 10) = 225 mL/cmH2O.
+    expect(peakIssue('@ 08:00\nvent mode PRVC, vt 450 mL, rate 14, peep 10, peak 12')).toEqual([
+      "1:45 Dynamic compliance 225 mL/cmH2O (450 ÷ (12 − 10)) is above 200 mL/cmH2O, more than the lungs and chest wall of a healthy adult give together: consistent with a transcription error in the peak pressure, the PEEP or the tidal volume, or with a patient drawing in most of the target volume with little support, since PRVC lowers its pressure as the patient's effort grows.",
+    ]);
+    // Carried settings count; an ordinary rise says nothing: 450 ÷ (22 − 10) = 38 mL/cmH2O.
+    expect(pn407('@ 08:00\nvent mode PRVC, vt 450 mL, rate 14, peep 10\n@ 09:00\nvent peak 10')).toHaveLength(1);
+    expect(pn407('@ 08:00\nvent mode PRVC, vt 450 mL, rate 14, peep 10, peak 22')).toEqual([]);
+    // At the ceiling, not above it: 400 ÷ 2 = 200.
+    expect(pn407('@ 08:00\nvent mode PRVC, vt 400 mL, rate 14, peep 10, peak 12')).toEqual([]);
+  });
+
+  // A volume mode and the EPAP or CPAP level of an oxygen line are never in force together: a vent
+  // line with a setting (a mode) ends the oxygen line's therapy, and an oxygen line ends ventilation
+  // (analysis/timeline.ts, PN311 says which line was ended). So the peak under VC is compared with a
+  // PEEP or with nothing, never with an EPAP or a CPAP level the note no longer holds.
+  it('compares the peak under VC with no EPAP or CPAP level, which a volume mode never holds beside it', () => {
+    const findings = (text: string) => checkNote(text).findings.map((f) => f.code).filter((c) => c === 'PN311' || c === 'PN407');
+    expect(findings('@ 08:00\noxygen niv ipap 14, epap 6, fio2 40 %\nvent mode VC, vt 450 mL, rate 14, peak 6')).toEqual(['PN311']);
+    expect(findings('@ 08:00\noxygen cpap 8, fio2 40 %\nvent mode VC, vt 450 mL, rate 14, peak 8')).toEqual(['PN311']);
+    expect(findings('@ 08:00\nvent mode VC, vt 450 mL, rate 14, peak 8\noxygen cpap 8, fio2 40 %')).toEqual(['PN311']);
+    // The CPAP level of 08:00 is not carried into the ventilation that follows, nor is the ventilation into NIV.
+    const r = checkNote('@ 08:00\noxygen cpap 8, fio2 40 %\n@ 09:00\nvent mode VC, vt 450 mL, rate 14, peak 8');
+    expect(r.findings.filter((f) => f.code === 'PN407')).toEqual([]);
+    expect(r.analysis.derivation(1).missing.map((m) => m.id)).toContain('compliance_dynamic');
+    expect(findings('@ 08:00\nvent mode VC, vt 450 mL, rate 14\n@ 09:00\noxygen niv ipap 14, epap 6\nvent peak 6')).toEqual([]);
   });
 });

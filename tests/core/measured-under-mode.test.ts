@@ -139,7 +139,7 @@ describe('what to add, worded for a measurement', () => {
     const { renderShow } = await import('../../server/src/cli/render-show');
     const { paint } = await import('../../server/src/cli/colour');
     const shown = renderShow('ps.pneu', checkNote(PS_THEN_GAS), paint(false));
-    expect(shown).toContain('vent     mode PS · ps 10 cmH2O · PEEP 8 cmH2O · VT 380 mL (measured) · FiO2 0.40');
+    expect(shown).toContain('vent     mode PS · PS 10 cmH2O · PEEP 8 cmH2O · VT 380 mL (measured) · FiO2 0.40');
     expect(shown).toMatch(/\n {2}\(measured\) +a value that is a setting under other modes, measured here/);
     const niv = renderShow('niv.pneu', checkNote(`${PATIENT}@ 08:00\noxygen    niv ipap 14, epap 6\nvent      vt 500, peak 18\n`), paint(false));
     expect(niv).toContain('vent     VT 500 mL (measured) · peak 18 cmH2O');

@@ -40,6 +40,19 @@ describe('mechanical power by mode', () => {
     });
   }
 
+  // Under SIMV and SIMV-VC the mandatory breaths are volume-controlled with a set constant flow, as
+  // under VC (fields/modes.ts): "shaped otherwise" was wrong of them. What the equation does not fit
+  // there is the patient's own breaths between them, pressure-supported, which the rate counts too
+  // (common practice, no source; Becher 2019 for pressure-shaped breaths).
+  for (const mode of ['SIMV', 'SIMV-VC']) {
+    it(`in ${mode} says that the breaths between the mandatory ones are what the equation does not fit`, () => {
+      const d = derivation(NOTE(mode) + '\nvitals rr 20');
+      expect(d.notApplicable.find((n) => n.id === 'mechanical_power')?.reason).toBe(
+        `the simplified equation is for volume control with a constant flow, the airway pressure rising in a straight line through inspiration; in ${mode} the mandatory breaths are so, but the patient's own breaths between them are pressure-supported and the rate counts them too, and pressure-supported breaths need equations of their own (Becher T et al., Intensive Care Med 2019)`,
+      );
+    });
+  }
+
   it('a mode carried from an earlier timepoint counts', () => {
     const d = derivation(`${NOTE('PC')}\n@ 09:00\nvent peak 27, plateau 25`);
     expect(d.derived.find((v) => v.id === 'mechanical_power')).toBeUndefined();

@@ -8,8 +8,17 @@
  * fields/modes.ts), where the ventilator drives the set volume in: a peak equal to the PEEP is a
  * breath with no rise in pressure, and a dynamic compliance VT / (Ppeak − PEEP) above the ceiling
  * means a static one above it too, as the peak includes the plateau (peak = plateau + resistive
- * pressure; respiratory mechanics, common practice, no source). Not under other modes, where the
- * patient's own effort may move a volume with the airway pressure at the PEEP.
+ * pressure; respiratory mechanics, common practice, no source). And under PRVC (the adaptive
+ * family), which sets the tidal volume as a target and raises its inspiratory pressure until that
+ * volume goes in: in a passive patient the pressure must rise there too. PRVC also lowers that
+ * pressure as the patient's own effort draws in more of the target (from memory), so there the
+ * finding names a patient breathing the target with little or no support as the other reading, and
+ * claims nothing of the static compliance. Not under other modes (PC, PS, CPAP, NIV), which set no
+ * volume, where the patient's own effort may move a volume with the airway pressure at the PEEP.
+ *
+ * A volume mode is never in force beside the EPAP or CPAP level of an oxygen line (a vent line with
+ * a mode ends that therapy, an oxygen line ends ventilation: analysis/timeline.ts, PN311), so the
+ * peak is compared with the PEEP alone.
  */
 import { COMPLIANCE_CEILING_ML_PER_CMH2O, SOURCES } from '../physiology';
 import { toRange } from '../syntax/tree';
@@ -45,28 +54,39 @@ const dynamicAboveCeilingMessage = (c: DerivedValue): string =>
 const noRiseAtPeakMessage = (peak: number, vt: number, mode: string): string =>
   `Peak pressure ${formatNumber(peak, 0)} cmH2O equals the PEEP with a tidal volume of ${formatNumber(vt, 0)} mL set under ${mode}: the ventilator drove the volume in without raising the pressure, which no respiratory system allows; consistent with a transcription error in the peak pressure or the PEEP.`;
 
+/** The other reading of a low rise under PRVC: the mode lowers its pressure as the patient's effort grows (from memory). */
+const ADAPTIVE_EFFORT = "since PRVC lowers its pressure as the patient's effort grows";
+
+const adaptiveDynamicAboveCeilingMessage = (c: DerivedValue): string =>
+  `Dynamic compliance ${formatAgainst(c.value, 0, CEILING)} mL/cmH2O (${withoutResult(c.substituted)}) is above ${CEILING} mL/cmH2O, more than the lungs and chest wall of a healthy adult give together: consistent with a transcription error in the peak pressure, the ${endExpiratoryName(c)} or the tidal volume, or with a patient drawing in most of the target volume with little support, ${ADAPTIVE_EFFORT}.`;
+
+const adaptiveNoRiseAtPeakMessage = (peak: number, vt: number, mode: string): string =>
+  `Peak pressure ${formatNumber(peak, 0)} cmH2O equals the PEEP with a target tidal volume of ${formatNumber(vt, 0)} mL under ${mode}: in a passive patient the ventilator cannot deliver the volume without raising the pressure; consistent with a transcription error in the peak pressure or the PEEP, or with a patient drawing in the whole target volume with no support, ${ADAPTIVE_EFFORT}.`;
+
 /**
- * The peak written at a timepoint with no plateau written, under volume control: a dynamic
- * compliance above the ceiling, or none because the peak equals the PEEP with a set tidal volume
- * above 0 (a peak below the PEEP is PN314's).
+ * The peak written at a timepoint with no plateau written, under volume control or PRVC: a dynamic
+ * compliance above the ceiling, or none because the peak equals the PEEP with a set (or target)
+ * tidal volume above 0 (a peak below the PEEP is PN314's).
  */
 function reportPeak(ctx: TimepointContext): void {
   const values = ctx.timepoint.values;
   const mode = values.wordOf('mode');
-  if (mode === null || modeFamily(mode) !== 'volume') return;
+  const family = modeFamily(mode);
+  if (mode === null || (family !== 'volume' && family !== 'adaptive')) return;
+  const adaptive = family === 'adaptive';
   const peak = values.get('peak');
   if (!peak || peak.origin.kind !== 'here' || !peak.stated.usable || peak.stated.value === null) return;
   const range = toRange(peak.stated.line, peak.stated.item.span);
   const compliance = derivedValueOf(ctx.derivation, 'compliance_dynamic');
   if (compliance !== null) {
-    if (compliance.value > CEILING + 1e-9) ctx.report({ range, message: dynamicAboveCeilingMessage(compliance) });
+    if (compliance.value > CEILING + 1e-9) ctx.report({ range, message: adaptive ? adaptiveDynamicAboveCeilingMessage(compliance) : dynamicAboveCeilingMessage(compliance) });
     return;
   }
   const vt = values.get('vt');
   const peep = values.get('peep');
   if (!vt?.stated.usable || vt.stated.value === null || !(vt.stated.value > 0)) return;
   if (!peep?.stated.usable || peep.stated.value !== peak.stated.value) return;
-  ctx.report({ range, message: noRiseAtPeakMessage(peak.stated.value, vt.stated.value, mode) });
+  ctx.report({ range, message: (adaptive ? adaptiveNoRiseAtPeakMessage : noRiseAtPeakMessage)(peak.stated.value, vt.stated.value, mode) });
 }
 
 export const complianceImplausible = defineCheck({
@@ -76,7 +96,7 @@ export const complianceImplausible = defineCheck({
   severity: 'warning',
   tags: ['physiology'],
   doc: {
-    fires: `A plateau pressure written at the timepoint gives, with the tidal volume and the end-expiratory pressure in force (PEEP; EPAP or the CPAP level on non-invasive support), a static compliance above ${CEILING} mL/cmH2O, or none at all because the plateau equals the end-expiratory pressure while a tidal volume above 0 was delivered. A healthy adult's lungs and chest wall together give about 100 mL/cmH2O, and a passive breath cannot move a volume without a rise in pressure, so either is more likely a number written wrong (a plateau of 11 for 21, a PEEP copied into the plateau) than a measurement. Where no plateau is written, under volume control (VC, SIMV, SIMV-VC), where the ventilator drives the set volume in, the peak pressure is looked at instead: a dynamic compliance (VT ÷ (peak − PEEP)) above ${CEILING} mL/cmH2O, which means a static one above it too since the peak includes the plateau, or a peak equal to the PEEP with a set tidal volume above 0, a breath with no rise in pressure; reported on the peak. Not under other modes, where the patient's own effort may move a volume with the airway pressure at the PEEP, and not where a plateau is written (its report stands, and no second one). Not in HFOV, where no conventional breath has a plateau. The compliance is still shown: the check reports, it does not withhold.`,
+    fires: `A plateau pressure written at the timepoint gives, with the tidal volume and the end-expiratory pressure in force (PEEP; EPAP or the CPAP level on non-invasive support), a static compliance above ${CEILING} mL/cmH2O, or none at all because the plateau equals the end-expiratory pressure while a tidal volume above 0 was delivered. A healthy adult's lungs and chest wall together give about 100 mL/cmH2O, and a passive breath cannot move a volume without a rise in pressure, so either is more likely a number written wrong (a plateau of 11 for 21, a PEEP copied into the plateau) than a measurement. Where no plateau is written, under volume control (VC, SIMV, SIMV-VC), where the ventilator drives the set volume in, the peak pressure is looked at instead: a dynamic compliance (VT ÷ (peak − PEEP)) above ${CEILING} mL/cmH2O, which means a static one above it too since the peak includes the plateau, or a peak equal to the PEEP with a set tidal volume above 0, a breath with no rise in pressure; reported on the peak. So under PRVC, which raises its pressure until the target volume goes in: a passive patient's airway pressure must rise there too; as PRVC also lowers its pressure when the patient's own effort draws in more of the target, the finding names that reading too (a patient breathing the target with little or no support). Not under other modes (PC, PS, CPAP, NIV), which set no volume, where the patient's own effort may move a volume with the airway pressure at the PEEP, and not where a plateau is written (its report stands, and no second one). Not in HFOV, where no conventional breath has a plateau. The compliance is still shown: the check reports, it does not withhold.`,
     example: '@ 08:00\nvent mode VC, vt 450 mL, peep 10, plateau 11',
     fix: 'Check the plateau (a true inspiratory hold) or the peak, the PEEP and the tidal volume against the ventilator.',
   },

@@ -240,15 +240,25 @@ function readOxygenation(g: GasFacts, out: Interpretation[]): void {
   const peep = (g.peep = c.peepLike());
   const adjusted = c.derivedValue('pf_ratio_altitude_adjusted');
   const pfForBand = adjusted ?? pf;
-  if (!pfForBand || !peep || peep.value < BERLIN_MIN_PEEP_CMH2O) return;
+  if (!pfForBand || !peep) return;
   // A child on invasive ventilation: the Berlin bands were made in adults, and the pediatric
   // consensus (PALICC 2015) grades a ventilated child's oxygenation by the oxygenation index
   // instead. Under the adult age Pneumark uses elsewhere (our convention: PALICC names none), the
   // P/F is not read against the bands, and the reading says why. Noninvasive support is read as before.
   const age = peep.fieldId === 'peep' ? c.field('age', 'age') : null;
-  if (age !== null && pf !== null && isUnderAdultAge(age.value)) {
+  const child = age !== null && isUnderAdultAge(age.value);
+  if (peep.value < BERLIN_MIN_PEEP_CMH2O) {
+    // Below the definition's PEEP or CPAP, a P/F a band would be given for is said not to be read
+    // against the bands, rather than left without a word (not for a child, whom no band is for).
+    if (!child && pf !== null && berlinOxygenationBand(pfForBand.value) !== null) {
+      g.peep = peep;
+      out.push(new Reading('oxygenation-band', [pf.id, peep.fieldId ?? 'peep'], g, false, `P/F ${pfText(g, pf.value)} with ${peep.name} ${formatShort(peep.value)} cmH2O${carriedOf(g.fio2, peep)}: ${LOW_PEEP_BAND_WORDS}`));
+    }
+    return;
+  }
+  if (child && age !== null && pf !== null) {
     g.peep = peep;
-    out.push(new Reading('oxygenation-band', BASIS_CHILD_BAND, g, false, `P/F ${g.gas.kpa ? `${kpaNumber(pf.value)} kPa (${formatShort(pf.value, 0)} mmHg)` : `${formatShort(pf.value, 0)} mmHg`} with ${peep.name} ${formatShort(peep.value)} cmH2O${carriedOf(g.fio2, peep)} at age ${formatAgeYears(age.value)} y: ${CHILD_BAND_WORDS}`));
+    out.push(new Reading('oxygenation-band', BASIS_CHILD_BAND, g, false, `P/F ${pfText(g, pf.value)} with ${peep.name} ${formatShort(peep.value)} cmH2O${carriedOf(g.fio2, peep)} at age ${formatAgeYears(age.value)} y: ${CHILD_BAND_WORDS}`));
     return;
   }
   // The altitude adjustment scales the resolution as it scales the P/F.
@@ -265,6 +275,13 @@ function readOxygenation(g: GasFacts, out: Interpretation[]): void {
 }
 
 const BASIS_CHILD_BAND: readonly string[] = ['pf_ratio', 'peep', 'age'];
+/** What the band reading says of a P/F at or under 300 mmHg below a PEEP or CPAP of 5 cmH2O (ARDS Definition Task Force, JAMA 2012). */
+const LOW_PEEP_BAND_WORDS = `not read against the oxygenation bands of the Berlin definition, which grade oxygenation only with PEEP or CPAP of at least ${BERLIN_MIN_PEEP_CMH2O} cmH2O.`;
+
+/** A P/F as the band readings write it: in kPa first at a gas read in kPa. */
+function pfText(g: GasFacts, pfMmhg: number): string {
+  return g.gas.kpa ? `${kpaNumber(pfMmhg)} kPa (${formatShort(pfMmhg, 0)} mmHg)` : `${formatShort(pfMmhg, 0)} mmHg`;
+}
 /** What the band reading says of a child on invasive ventilation, after its numbers (Khemani RG et al, PALICC, Pediatr Crit Care Med 2015;16(5 Suppl 1):S23–S40). */
 const CHILD_BAND_WORDS = 'not read against the oxygenation bands of the Berlin definition, which were made in adults; the pediatric consensus (PALICC 2015) grades the oxygenation of a ventilated child by the oxygenation index instead.';
 

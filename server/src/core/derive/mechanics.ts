@@ -18,6 +18,7 @@ import {
 import type { NoninvasiveSupport } from '../analysis/noninvasive-support';
 import { ADULT_FROM_YEARS, defineDerived, withDecimals, type DeriveContext, type Outcome, type Term, type ValueExtras } from './context';
 import { decimalsAgainst, formatAgeYears, formatShort } from '../util/format';
+import { modeFamily } from '../fields/modes';
 
 export const minuteVentilation = defineDerived({
   id: 'minute_ventilation',
@@ -223,16 +224,26 @@ export const airwayResistanceDef = defineDerived({
   source: SOURCES['respiratory-mechanics'],
   anchors: ['peak', 'plateau'],
   compute(c) {
-    const mode = c.word('mode');
-    if (mode && mode.word !== 'VC') return { kind: 'na', reason: 'holds only for constant-flow volume control (mode VC)' };
+    // The flow is set and constant in the volume family (VC, SIMV, SIMV-VC: fields/modes.ts), where a
+    // mandatory breath's peak exceeds its plateau by flow × resistance; elsewhere the flow decelerates.
+    // Said only where both pressures are written: a peak alone under PC asks for nothing.
     const peak = c.field('peak', 'Ppeak');
     const plat = c.field('plateau', 'Pplat');
-    const flow = c.field('insp_flow', 'flow');
     if (!peak || !plat) return { kind: 'na', reason: 'needs peak and plateau pressures' };
+    const mode = c.word('mode');
+    if (mode && modeFamily(mode.word) !== 'volume') return NOT_CONSTANT_FLOW;
+    const flow = c.field('insp_flow', 'flow');
     if (!flow) return c.missing([flow, c.needFor('insp_flow', 'flow (inspiratory flow, L/min)')]);
     return c.value(airwayResistance(peak.value, plat.value, flow.value), [peak, plat, flow]);
   },
 });
+
+/** Why the airway resistance is not worked out under a mode that sets no constant flow: shown where it would have been. */
+const NOT_CONSTANT_FLOW: Outcome = {
+  kind: 'na',
+  reason: 'holds only for a set, constant inspiratory flow (VC, SIMV, SIMV-VC), where the peak exceeds the plateau by flow × resistance',
+  explained: true,
+};
 
 export const mechanicalPower = defineDerived({
   id: 'mechanical_power',
@@ -275,6 +286,8 @@ export const mechanicalPower = defineDerived({
  * -supported breaths (Becher 2019), whose own equations Pneumark does not use.
  */
 function notVolumeControl(mode: string): string {
+  // SIMV run volume-targeted: its mandatory breaths are VC's, the patient's breaths between them are not.
+  if (modeFamily(mode) === 'volume') return `${CONSTANT_FLOW_ONLY}in ${mode} the mandatory breaths are so, but the patient's own breaths between them are pressure-supported and the rate counts them too, and pressure-supported breaths need equations of their own (Becher T et al., Intensive Care Med 2019)`;
   return `${CONSTANT_FLOW_ONLY}in ${mode} the breaths are shaped otherwise, and pressure-controlled or -supported breaths need equations of their own (Becher T et al., Intensive Care Med 2019)`;
 }
 
