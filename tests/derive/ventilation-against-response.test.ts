@@ -51,3 +51,34 @@ describe('in a note whose gas unit is kPa', () => {
     );
   });
 });
+
+// A raised PaCO2 within the response a primary metabolic alkalosis calls for, 40 + 0.7 × (HCO3 − 24)
+// ± 2 mmHg (Berend K, de Vries APJ, Gans ROB, N Engl J Med 2014;371:1434–1445, the rule read in its
+// reproduction), is the breathing's response to it, not ventilation failing to clear CO2; that the
+// response can take the PaCO2 above 50 mmHg is common practice, no source. Gases invented, each HCO3
+// within 0.4 mmol/L of 0.0307 × PaCO2 × 10^(pH − 6.1).
+describe('a raised PaCO2 read against the response a metabolic alkalosis calls for', () => {
+  it('HCO3 41, PaCO2 53 within the expected 50–54 mmHg, on air: the response, not ventilatory failure', () => {
+    const r = readings(note('ph 7.50, pco2 53, po2 72, hco3 41'));
+    expect(r['acid-base']).toContain('with the expected respiratory response (PaCO2 within the expected 50–54 mmHg)');
+    expect(r.ventilation).toBe("PaCO2 53 mmHg: consistent with hypercapnia (above 50 mmHg): the breathing's response to the metabolic alkalosis (the acid–base reading compares it with the response expected).");
+    expect(r['respiratory-failure']).toBe("Consistent with hypercapnia (PaCO2 53 mmHg, above 50 mmHg) without hypoxaemia on air (PaO2 72 mmHg, not below 60 mmHg), which may be the breathing's response to the metabolic alkalosis (the acid–base reading compares it with the response expected) rather than ventilatory failure.");
+  });
+
+  it('HCO3 36, PaCO2 47 within the expected 46–50 mmHg: a mildly raised PaCO2 that is the response', () => {
+    const r = readings(note('ph 7.50, pco2 47, po2 85, hco3 36'));
+    expect(r.ventilation).toBe("PaCO2 47 mmHg: consistent with a mildly raised PaCO2, below the hypercapnia threshold of 50 mmHg: the breathing's response to the metabolic alkalosis (the acid–base reading compares it with the response expected).");
+  });
+
+  it('with hypoxaemia: still type 2 by its definition, and the reading names the response the PaCO2 may be', () => {
+    const r = readings(note('ph 7.50, pco2 53, po2 55, hco3 41'));
+    expect(r['respiratory-failure']).toBe("Consistent with type 2 (hypercapnic) respiratory failure: hypoxaemia with hypercapnia (PaO2 55 mmHg, below 60 mmHg; PaCO2 53 mmHg, above 50 mmHg); the raised PaCO2 may be the breathing's response to the metabolic alkalosis (the acid–base reading compares it with the response expected).");
+  });
+
+  it('HCO3 45, PaCO2 62 above the expected 53–57 mmHg: an added respiratory acidosis, and ventilation not clearing CO2, as before', () => {
+    const r = readings(note('ph 7.47, pco2 62, po2 70, hco3 45'));
+    expect(r['acid-base']).toContain('consistent with an added respiratory acidosis');
+    expect(r.ventilation).toBe('PaCO2 62 mmHg: consistent with hypercapnia (above 50 mmHg): ventilation is not clearing CO2.');
+    expect(r['respiratory-failure']).toContain('and so with ventilatory (hypercapnic) failure');
+  });
+});

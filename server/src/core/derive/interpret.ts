@@ -400,6 +400,25 @@ function respondsToMetabolicAcidosis(g: GasFacts): boolean {
 const RESPONSE_TO_ACIDOSIS = 'the breathing\'s response to the metabolic acidosis (the acid–base reading compares it with the response expected)';
 
 /**
+ * The mirror of `respondsToMetabolicAcidosis`: a raised PaCO2 in a primary metabolic alkalosis is
+ * the breathing's response to it (PaCO2 40 + 0.7 × (HCO3 − 24) ± 2: Berend et al. 2014), not
+ * ventilation failing to clear CO2, where the acid–base reading finds the PaCO2 within or short of
+ * the response (not above it: an added respiratory acidosis is then suspected, and the words stay
+ * as before).
+ */
+function respondsToMetabolicAlkalosis(g: GasFacts): boolean {
+  const finding = g.acidBase;
+  return finding !== null && finding.primary === 'metabolic-alkalosis' && finding.suspected !== 'respiratory-acidosis';
+}
+
+const RESPONSE_TO_ALKALOSIS = 'the breathing\'s response to the metabolic alkalosis (the acid–base reading compares it with the response expected)';
+
+/** What the hypercapnic failure readings add where the raised PaCO2 is that response: '' elsewhere. */
+function alkalosisResponseNote(g: GasFacts): string {
+  return respondsToMetabolicAlkalosis(g) ? `; the raised PaCO2 may be ${RESPONSE_TO_ALKALOSIS}` : '';
+}
+
+/**
  * A PaCO2 within its reference interval is not "normal ventilation" where the acid–base reading finds
  * a primary metabolic disorder whose respiratory response it is outside of: above the range a
  * metabolic acidosis calls for (Winters' formula: Albert, Dell & Winters 1967), an added respiratory
@@ -423,9 +442,9 @@ function ventilationText(g: GasFacts): string {
   const v = g.paco2!.value;
   const hypercapniaAt = settings.hypercapniaAboveMmhg;
   const text = g.hypercapnic
-    ? `consistent with hypercapnia (above ${gas.threshold(hypercapniaAt, v)}): ventilation is not clearing CO2`
+    ? `consistent with hypercapnia (above ${gas.threshold(hypercapniaAt, v)}): ${respondsToMetabolicAlkalosis(g) ? RESPONSE_TO_ALKALOSIS : 'ventilation is not clearing CO2'}`
     : sideOf(v, UPPER_NORMAL_PACO2_MMHG, co2Resolution) > 0
-      ? `consistent with a mildly raised PaCO2, ${sideOf(v, hypercapniaAt, co2Resolution) === 0 ? `at the hypercapnia threshold of ${gas.on(hypercapniaAt, co2Resolution)}, not above it` : `below the hypercapnia threshold of ${gas.threshold(hypercapniaAt, v)}`}`
+      ? `consistent with a mildly raised PaCO2, ${sideOf(v, hypercapniaAt, co2Resolution) === 0 ? `at the hypercapnia threshold of ${gas.on(hypercapniaAt, co2Resolution)}, not above it` : `below the hypercapnia threshold of ${gas.threshold(hypercapniaAt, v)}`}${respondsToMetabolicAlkalosis(g) ? `: ${RESPONSE_TO_ALKALOSIS}` : ''}`
       : sideOf(v, settings.hypocapniaBelowMmhg, co2Resolution) < 0
         ? `consistent with hypocapnia (below ${gas.threshold(settings.hypocapniaBelowMmhg, v)}): ${respondsToMetabolicAcidosis(g) ? RESPONSE_TO_ACIDOSIS : 'ventilation above metabolic need'}`
         : `consistent with ${outsideMetabolicResponse(g) || 'normal ventilation'}`;
@@ -452,7 +471,7 @@ function co2Words(g: GasFacts): string {
 }
 
 function type2Text(g: GasFacts): string {
-  return `Consistent with type 2 (hypercapnic) respiratory failure: hypoxaemia with hypercapnia (${o2Words(g)}, ${o2Side(g)}; ${co2Words(g)}).`;
+  return `Consistent with type 2 (hypercapnic) respiratory failure: hypoxaemia with hypercapnia (${o2Words(g)}, ${o2Side(g)}; ${co2Words(g)})${alkalosisResponseNote(g)}.`;
 }
 
 /**
@@ -466,18 +485,20 @@ function type1Text(g: GasFacts): string {
 }
 
 function type2OnOxygenText(g: GasFacts): string {
-  return `Consistent with type 2 (hypercapnic) respiratory failure, with PaO2 held up by supplemental oxygen (${co2Words(g)}; ${o2Words(g)} on ${fio2Words(g.fio2!)}).`;
+  return `Consistent with type 2 (hypercapnic) respiratory failure, with PaO2 held up by supplemental oxygen (${co2Words(g)}; ${o2Words(g)} on ${fio2Words(g.fio2!)})${alkalosisResponseNote(g)}.`;
 }
 
 function type2OnDeviceText(g: GasFacts): string {
-  return `Consistent with type 2 (hypercapnic) respiratory failure, with PaO2 held up by supplemental oxygen (${co2Words(g)}; ${o2Words(g)} with oxygen by ${g.oxygenDevice}, FiO2 not stated).`;
+  return `Consistent with type 2 (hypercapnic) respiratory failure, with PaO2 held up by supplemental oxygen (${co2Words(g)}; ${o2Words(g)} with oxygen by ${g.oxygenDevice}, FiO2 not stated)${alkalosisResponseNote(g)}.`;
 }
 
 function hypercapniaNoFio2Text(g: GasFacts): string {
-  return `Consistent with hypercapnia (${co2Words(g)}) with ${o2Words(g)}, ${o2Side(g)}, and no FiO2 stated: on supplemental oxygen this would be consistent with type 2 (hypercapnic) respiratory failure; add ${g.c.fio2Need()} to tell.`;
+  return `Consistent with hypercapnia (${co2Words(g)}) with ${o2Words(g)}, ${o2Side(g)}, and no FiO2 stated: on supplemental oxygen this would be consistent with type 2 (hypercapnic) respiratory failure; add ${g.c.fio2Need()} to tell${alkalosisResponseNote(g)}.`;
 }
 
 function hypercapniaOnAirText(g: GasFacts): string {
+  // Where the raised PaCO2 is the response to a metabolic alkalosis, it is not called ventilatory failure.
+  if (respondsToMetabolicAlkalosis(g)) return `Consistent with hypercapnia (${co2Words(g)}) without hypoxaemia on air (${o2Words(g)}, ${o2Side(g)}), which may be ${RESPONSE_TO_ALKALOSIS} rather than ventilatory failure.`;
   return `Consistent with hypercapnia (${co2Words(g)}) without hypoxaemia on air (${o2Words(g)}, ${o2Side(g)}), and so with ventilatory (hypercapnic) failure; type 2 respiratory failure, as Pneumark reads it, also needs hypoxaemia.`;
 }
 
