@@ -521,10 +521,24 @@ describe('a line naming a device at the timepoint where an oxygen line is in for
     expect(codes(at('oxygen cannula 2', 'oxygen mask 8'), 'PN206').map((x) => x.message).filter((m) => m.startsWith('Oxygen device'))).toEqual(['Oxygen device is stated twice at this timepoint; the later value is used.']);
   });
 
-  it('the same device on a line with a word it does not read replaces, as any such line does, and says what is lost', () => {
+  it('the same device on a line with a word it does not read still updates it: the device is named, so the word is no device misspelt', () => {
+    // Before, such a line replaced the therapy, and a fix that wrote the device again (PN206's
+    // "Write `venturi` here") left its finding in place on a line with a word half read.
     const text = at('oxygen niv ipap 14, epap 6', 'oxygen niv fio2 0.4, fooo 3');
-    expect(inForce(text, 0, 'ipap')).toEqual([null, null, null]);
-    expect(codes(text, 'PN206').map((x) => x.message)).toEqual(['Oxygen device is stated twice at this timepoint; the later value is used. This line replaces the oxygen above it: the IPAP and EPAP of line 2 are no longer in force.']);
+    expect([inForce(text, 0, 'ipap'), inForce(text, 0, 'fio2')]).toEqual([[14, 'here', 1], [0.4, 'here', 2]]);
+    expect(codes(text, 'PN206')).toEqual([]);
+    expect(codes(text, 'PN201')).toHaveLength(1);
+    // The fix offered where another device replaced the therapy, on a line with a unit not read.
+    const other = at('oxygen venturi, fio2 0.35', 'oxygen room air, flow 1e3 L/min');
+    const fix = codes(other, 'PN206').flatMap((x) => x.fixes).find((x) => x.title.startsWith('Write `venturi` here'))!;
+    expect(fix).toBeDefined();
+    const fixed = applyEdits(other, fix.edits);
+    expect(codes(fixed, 'PN206')).toEqual([]);
+    expect(inForce(fixed, 0, 'fio2')).toEqual([0.35, 'here', 1]);
+  });
+  it('a line naming no device, with a word it does not read, still replaces (the word may be a device misspelt)', () => {
+    const text = `@ day 1 08:00\noxygen cannula 2\n@ day 1 09:00\noxygen flow 3, canula\n`;
+    expect(inForce(text, 1, 'device')).toEqual([null, null, null]);
   });
 
   it('a vent line between ends the oxygen line: the device named again starts afresh, and nothing is named as lost', () => {

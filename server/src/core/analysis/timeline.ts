@@ -1155,12 +1155,16 @@ function updatedDevice(oxygen: HeldMap, stated: readonly (StatedValue | undefine
   const device = held !== undefined ? (held.stated.usable ? held.stated.word : null) : noninvasiveSupport(null, oxygen);
   if (device === null) return null;
   let named = false;
+  let unread = false;
   for (let k = 0; k < items.length; k++) {
     const item = items[k]!;
-    if (item.field === null) return null;
-    if (item.implied === 'device') named = true;
+    if (item.field === null) unread = true;
+    else if (item.implied === 'device') named = true;
   }
+  // A line that names the device again updates it whatever else it writes, a word it does not read
+  // included (the device is named, so that word is no device misspelt).
   if (named) return namesDeviceAgain(oxygen, device, stated, from, to, tp) ? device : null;
+  if (unread) return null;
   for (let k = from; k < to; k++) if (!deviceSets(device, stated[k]!.fieldId)) return null;
   return device;
 }
