@@ -12,7 +12,7 @@ import { fieldById } from '../../server/src/core/fields/registry';
 import { convert, HB_MMOL_PER_L, unitById } from '../../server/src/core/fields/units';
 import { displayUnit } from '../../server/src/core/analysis/read-value';
 import { applyEdits, codeActions, convertNoteUnits, editsOverlap, keepsValues, type ActionInfo, type GasUnit } from '../../server/src/core/service';
-import { keepingCommentColumns } from '../../server/src/core/service/text-edits';
+import { keepingCommentColumns, withoutCommentColumnEdits } from '../../server/src/core/service/text-edits';
 import { FIX_CHECKS_PER_LINE } from '../../server/src/core/service/actions';
 import type { TextEdit } from '../../server/src/core/types';
 import { PLACEHOLDERS } from '../../server/src/core/privacy/types';
@@ -473,14 +473,19 @@ const notes = fc.oneof({ weight: 3, arbitrary: messyNote }, { weight: 1, arbitra
 /** Fix-all edits as taken one finding at a time, skipping a fix that overlaps any edit taken before (the reference). */
 function referenceFixAll(result: NoteResult, codes: ReadonlySet<string>): TextEdit[] {
   const edits: TextEdit[] = [];
+  const lineText = (line: number) => result.analysis.tree.lines[line]?.text;
   for (const f of result.findings) {
     const fix = f.fixes.find((x) => x.preferred === true);
     if (!fix || fix.edits.length === 0 || !codes.has(f.code) || !keepsValues(result, fix)) continue;
-    if (editsOverlap([...edits, ...fix.edits])) continue;
-    edits.push(...fix.edits);
+    // A fix's own edit that only keeps its line's comment in its column is left out: one such edit
+    // per line is made below for all the line's fixes together (`oxygen room air..  #c`: the rename
+    // of `room air.` and the full stop removed would each move the comment on their own).
+    const own = withoutCommentColumnEdits(lineText, fix.edits);
+    if (editsOverlap([...edits, ...own])) continue;
+    edits.push(...own);
   }
   // Each changed line's trailing comment kept in its column, as every action keeps it.
-  return keepingCommentColumns((line) => result.analysis.tree.lines[line]?.text, edits);
+  return keepingCommentColumns(lineText, edits);
 }
 
 describe('action properties', () => {
@@ -751,5 +756,18 @@ describe('a trailing comment stays in its column', () => {
       'vent      plateau 24, amplitude 30   # a',
       'vitals    spo2 95, temp 37          # b',
     ]);
+  });
+});
+
+describe('fix-all on a line whose fixes each keep its comment in its column', () => {
+  it('moves the comment once, for all the line\'s fixes together: it stays in its column', () => {
+    // `room air.` renamed to `room air` and the full stop after it removed: two characters fewer,
+    // so two blanks more before the comment, which stays at column 19.
+    const text = 'oxygen room air..  #c';
+    const result = checkNote(text);
+    const whole = { start: { line: 0, character: 0 }, end: { line: 1, character: 0 } };
+    const all = codeActions(result, whole).find((a) => a.kind === 'source.fixAll')!;
+    expect(applyEdits(text, all.edits)).toBe('oxygen room air    #c');
+    expect(all.edits).toEqual(referenceFixAll(result, new Set(result.findings.map((f) => f.code))));
   });
 });
