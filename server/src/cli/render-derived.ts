@@ -35,7 +35,7 @@ export function renderDerived(tp: Timepoint, d: TimepointDerivation | undefined,
       const estimateMark = v.estimate && !/\best\b/.test(v.short);
       if (estimateMark) legend.mark('estimate');
       if (v.usesCarried) legend.mark('carried');
-      const marks = `${estimateMark ? ' est.' : ''}${v.usesCarried ? '*' : ''}`;
+      const marks = `${estimateMark ? ' est.' : ''}${v.usesCarried ? '*' : ''}${v.caveat !== null ? ` (${v.caveat})` : ''}`;
       if (isGasPressureValue(v) && kpa) {
         return `${v.short} ${p.bold(kpaText(v))} kPa (${number} mmHg)${marks}`;
       }

@@ -24,6 +24,8 @@ export type { Term } from './model';
 export interface ValueExtras {
   readonly range?: { low: number; high: number } | undefined;
   readonly notes?: readonly string[] | undefined;
+  /** See `DerivedValue.caveat`. */
+  readonly caveat?: string | undefined;
   readonly estimate?: boolean | undefined;
   readonly formula?: string | undefined;
   /**
@@ -708,6 +710,7 @@ class ComputedValue implements DerivedValue {
   readonly source: string;
   readonly estimate: boolean;
   readonly notes: readonly string[];
+  readonly caveat: string | null;
   readonly usesCarried: boolean;
   readonly line: number | null;
   readonly template: string;
@@ -731,6 +734,7 @@ class ComputedValue implements DerivedValue {
     this.source = def.source;
     this.estimate = extras.estimate ?? false;
     this.notes = extras.notes ?? NONE;
+    this.caveat = extras.caveat ?? null;
     this.usesCarried = carried;
     this.line = line;
     this.template = extras.formula ?? def.formula;

@@ -351,10 +351,12 @@ export const sfRatioDef = defineDerived({
     const spo2 = c.field('spo2', 'SpO2');
     const fio2 = c.fio2();
     if (!spo2 || !fio2) return c.missing([spo2, c.needFor('spo2', 'spo2')], [fio2, c.fio2Need()]);
-    const notes = spo2.value > OSI_MAX_SPO2_PERCENT ? ['SpO2 above 97 %: the S/F ratio no longer tracks P/F (Rice 2007)'] : [];
-    return c.value(sfRatio(spo2.value, fio2.value), [spo2, fio2], { notes });
+    return c.value(sfRatio(spo2.value, fio2.value), [spo2, fio2], spo2.value > OSI_MAX_SPO2_PERCENT ? SF_ABOVE_97 : undefined);
   },
 });
+
+/** An S/F ratio from an SpO2 above 97 %, where the ratio no longer tracks P/F: said beside the number, not only in its hover. */
+const SF_ABOVE_97: ValueExtras = { notes: ['SpO2 above 97 %: the S/F ratio no longer tracks P/F (Rice 2007)'], caveat: 'SpO2 > 97 %' };
 
 /** The thresholds of the ROX index by the hours of high flow, each time the source gives (`roca-2019`). */
 const ROX_NOTES: ValueExtras = { notes: ['≥ 4.88 at 2, 6 or 12 h of high flow was associated with success; below 2.85 at 2 h, 3.47 at 6 h and 3.85 at 12 h with failure (Roca 2019)'] };

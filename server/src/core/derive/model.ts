@@ -52,6 +52,12 @@ export interface DerivedValue {
   /** An estimate by a rough rule (e.g. FiO2 from a cannula's flow). */
   readonly estimate: boolean;
   readonly notes: readonly string[];
+  /**
+   * A few words written beside the value wherever it is shown on its own (`show`, an inlay hint)
+   * where a condition its source sets is not met: `SpO2 > 97 %` beside an S/F ratio. Null
+   * elsewhere; a note says why, in the hover and JSON.
+   */
+  readonly caveat: string | null;
   /** True when any input (directly or through another derived value) was carried forward. */
   readonly usesCarried: boolean;
   /** The line the value belongs to (its anchor input's line), for hints. */

@@ -194,8 +194,9 @@ export function inlayHints(result: NoteResult, lines: LineSpan, options: HintOpt
           // In a note whose gas unit is kPa, a pressure shown in mmHg (its gas was written in mmHg) says so.
           const mmhgInKpaNote = !kpa && isGasPressureValue(d) && shownAt.gasUnit === 'kPa';
           const n = `${hintNumber(d, kpa, pick.unit === true || mmhgInKpaNote)}${d.usesCarried ? CARRIED_MARK : ''}`;
-          const label = pick.text(n, d, all.filter((v) => v.line === d.line), kpa);
-          if (!label) continue;
+          const text = pick.text(n, d, all.filter((v) => v.line === d.line), kpa);
+          if (!text) continue;
+          const label = d.caveat !== null ? `${text} (${d.caveat})` : text;
           shown.add(`${line}:${d.id}`);
           add(line, category, { label, values: [d], withheld: NONE_WITHHELD, reading: null, derivation, timepoint: shownAt });
         }
