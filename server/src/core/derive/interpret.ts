@@ -343,11 +343,27 @@ function mildlyReducedText(g: GasFacts): string {
   const hypoxaemiaAt = g.settings.hypoxaemiaBelowMmhg;
   const onThreshold = sideOf(pao2, hypoxaemiaAt, g.o2Resolution) === 0;
   const where = onThreshold ? `at the hypoxaemia threshold of ${gas.on(hypoxaemiaAt, g.o2Resolution)}, not below it` : `above the hypoxaemia threshold of ${gas.threshold(hypoxaemiaAt, pao2)}`;
+  // On oxygen of an FiO2 not stated the PaO2 is not graded as a mild impairment: it may hide a severe one.
+  if (deviceNoFio2(g) !== '') return `PaO2 ${pao2Shown(g, hypoxaemiaAt, LOW_NORMAL_PAO2_MMHG)}${deviceNoFio2(g)}: consistent with a PaO2 ${where} on oxygen, which may still hide impaired gas exchange: add ${g.c.fio2Need()} to grade it.`;
   return `PaO2 ${pao2Shown(g, hypoxaemiaAt, LOW_NORMAL_PAO2_MMHG)}: consistent with mildly reduced oxygenation, ${where}.`;
 }
 
 function adequateOxygenationText(g: GasFacts): string {
-  return `PaO2 ${pao2Shown(g, LOW_NORMAL_PAO2_MMHG)}${g.onOxygen ? ` on ${fio2Words(g.fio2!)}` : ''}: consistent with adequate arterial oxygenation.`;
+  return `PaO2 ${pao2Shown(g, LOW_NORMAL_PAO2_MMHG)}${g.onOxygen ? ` on ${fio2Words(g.fio2!)}` : deviceNoFio2(g)}: consistent with adequate arterial oxygenation${fio2ToTell(g)}.`;
+}
+
+/**
+ * On oxygen by a device whose FiO2 is not stated (a cannula, a mask), a PaO2 at or above the
+ * hypoxaemia threshold says nothing of how much oxygen holds it there: a PaO2 of 70 mmHg on a
+ * reservoir mask is no mild impairment. The readings name the device, as the hypoxaemia reading
+ * does, and what to add to tell; '' off oxygen or with an FiO2.
+ */
+function deviceNoFio2(g: GasFacts): string {
+  return !g.onOxygen && g.oxygenDevice !== null ? ` with oxygen by ${g.oxygenDevice}, FiO2 not stated` : '';
+}
+
+function fio2ToTell(g: GasFacts): string {
+  return deviceNoFio2(g) !== '' ? ` on oxygen: add ${g.c.fio2Need()} to tell how well the lungs oxygenate` : '';
 }
 
 function berlinBandText(g: GasFacts): string {
