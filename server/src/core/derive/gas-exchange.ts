@@ -370,7 +370,7 @@ export const roxIndexDef = defineDerived({
   decimals: 2,
   category: 'oxygenation',
   formula: '({SpO2} ÷ {FiO2}) ÷ {RR}',
-  source: `${SOURCES['roca-2016']} ${SOURCES['roca-2019']}`,
+  source: `${SOURCES['roca-2016']} ${SOURCES['roca-2019']} Read against the thresholds of 2, 6 or 12 h where the hours of high flow are known and within 1 h of that hour: common practice, no source.`,
   anchors: ['spo2', 'rr'],
   compute(c) {
     const device = c.word('device');
