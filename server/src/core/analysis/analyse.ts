@@ -6,6 +6,7 @@ import { parseNote } from '../syntax/parser';
 import type { NoteTree } from '../syntax/tree';
 import { derivationOf, deriveTimepoint } from '../derive/registry';
 import type { TimepointDerivation } from '../derive/model';
+import { highFlowHoursAt } from '../derive/high-flow';
 import { buildTimeline, type Timeline } from './timeline';
 
 export interface NoteAnalysis {
@@ -30,7 +31,7 @@ export function analyseTree(tree: NoteTree, settings: Settings): NoteAnalysis {
 export function deriverFor(timeline: Timeline, settings: Settings): (index: number) => TimepointDerivation {
   return (index) => {
     const tp = timeline.timepoints[index];
-    return tp ? deriveTimepoint(tp, settings) : derivationOf(index);
+    return tp ? deriveTimepoint(tp, settings, () => highFlowHoursAt(timeline.timepoints, index)) : derivationOf(index);
   };
 }
 

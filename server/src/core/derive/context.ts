@@ -18,8 +18,12 @@ import { NONE } from '../util/lists';
 import { reproducingSubstitution, termWithExtra } from './reproduce';
 import { MODES_WITH_BACKUP_RATE, MODES_WITH_SET_BREATHS, OSCILLATION_MODE } from '../physiology/mechanics';
 import { keptFor, SmallStore, type Kept } from '../util/small-store';
+import type { HighFlowHours } from './high-flow';
 
 export type { Term } from './model';
+
+/** No timeline: the hours of high flow are unknown. */
+const NO_HIGH_FLOW_HOURS = (): HighFlowHours | null => null;
 
 export interface ValueExtras {
   readonly range?: { low: number; high: number } | undefined;
@@ -186,6 +190,8 @@ export class DeriveContext {
     readonly timepoint: Timepoint,
     readonly settings: Settings,
     private readonly table: DerivedTable,
+    /** The hours of high flow at this timepoint, which only the timeline knows (`highFlowHoursAt`); null without one. */
+    readonly highFlowHours: () => HighFlowHours | null = NO_HIGH_FLOW_HOURS,
   ) {}
 
   /** A value computed once per timepoint and shared by several definitions (e.g. the acid–base classification). */

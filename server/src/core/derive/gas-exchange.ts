@@ -23,6 +23,7 @@ import { decimalsAgainst, formatAgeYears, formatNumber, formatShort } from '../u
 import { SEA_LEVEL_MMHG, pressureFitsAltitude } from './atmosphere';
 import type { Settings } from '../settings';
 import { ABOVE_INSPIRED_BECAUSE } from './model';
+import { roxAtHour } from './high-flow';
 
 /** PaO2 above alveolar PO2 by more than this (mmHg) is impossible rather than rounding. */
 export const ALVEOLAR_ROUNDING_MMHG = 5;
@@ -369,7 +370,7 @@ export const roxIndexDef = defineDerived({
   decimals: 2,
   category: 'oxygenation',
   formula: '({SpO2} ÷ {FiO2}) ÷ {RR}',
-  source: `${SOURCES['roca-2016']} ${SOURCES['roca-2019']}`,
+  source: `${SOURCES['roca-2016']} ${SOURCES['roca-2019']} Read against the thresholds of 2, 6 or 12 h where the hours of high flow are known and within 1 h of that hour: common practice, no source.`,
   anchors: ['spo2', 'rr'],
   compute(c) {
     const device = c.word('device');
@@ -378,7 +379,9 @@ export const roxIndexDef = defineDerived({
     const fio2 = c.fio2();
     const rr: Term | null = c.field('rr', 'RR');
     if (!spo2 || !fio2 || !rr) return c.missing([spo2, c.needFor('spo2', 'spo2')], [fio2, c.fio2Need()], [rr, c.needFor('rr', 'rr')]);
-    return c.value(roxIndex(spo2.value, fio2.value, rr.value), [spo2, fio2, rr], ROX_NOTES);
+    const rox = roxIndex(spo2.value, fio2.value, rr.value);
+    const atHour = rox === null ? null : roxAtHour(rox, c.highFlowHours());
+    return c.value(rox, [spo2, fio2, rr], atHour === null ? ROX_NOTES : { notes: [...ROX_NOTES.notes!, atHour.note], caveat: atHour.caveat });
   },
 });
 

@@ -8,6 +8,7 @@ import type { Settings } from '../settings';
 import * as acidBase from './acid-base';
 import * as atmosphere from './atmosphere';
 import { DeriveContext, type DerivedDefinition, type DerivedTable } from './context';
+import type { HighFlowHours } from './high-flow';
 import * as gas from './gas-exchange';
 import { interpret } from './interpret';
 import * as mech from './mechanics';
@@ -163,8 +164,8 @@ class TimepointValues implements TimepointDerivation {
   private lists: { derived: DerivedValue[]; missing: MissingValue[]; notApplicable: NotApplicable[] } | null = null;
   private readings: readonly Interpretation[] | null = null;
 
-  constructor(private readonly tp: Timepoint, private readonly settings: Settings) {
-    this.ctx = new DeriveContext(tp, settings, TABLE);
+  constructor(private readonly tp: Timepoint, private readonly settings: Settings, highFlowHours?: () => HighFlowHours | null) {
+    this.ctx = new DeriveContext(tp, settings, TABLE, highFlowHours);
   }
 
   get timepoint(): number {
@@ -222,8 +223,9 @@ export function derivationOf(timepoint: number, derived: readonly DerivedValue[]
   return { timepoint, derived, missing: NONE, notApplicable: NONE, interpretations: NONE };
 }
 
-export function deriveTimepoint(tp: Timepoint, settings: Settings): TimepointDerivation {
-  return new TimepointValues(tp, settings);
+/** `highFlowHours`: the hours of high flow at `tp`, asked only where a value reads them (the timeline knows them, `highFlowHoursAt`). */
+export function deriveTimepoint(tp: Timepoint, settings: Settings, highFlowHours?: () => HighFlowHours | null): TimepointDerivation {
+  return new TimepointValues(tp, settings, highFlowHours);
 }
 
 /**

@@ -219,6 +219,33 @@ export function roxIndex(spo2Percent: number, fio2: number, respiratoryRatePerMi
   return finiteOrNull(spo2Percent / fio2 / respiratoryRatePerMin);
 }
 
+/** A ROX index at or above this at 2, 6 or 12 h of high flow was associated with success (`roca-2019`). */
+export const ROX_SUCCESS_FROM = 4.88;
+
+/** The hours of high flow the ROX thresholds were given for, each with the ROX below which failure was predicted (`roca-2019`). */
+export const ROX_FAILURE_BELOW: ReadonlyMap<number, number> = new Map([[2, 2.85], [6, 3.47], [12, 3.85]]);
+
+/**
+ * How far (h) from 2, 6 or 12 h of high flow a ROX index is still read against that hour's
+ * thresholds: a charted round seldom falls on the hour (common practice, no source). The windows
+ * (1–3, 5–7 and 11–13 h) do not meet.
+ */
+export const ROX_HOUR_WINDOW_H = 1;
+
+/** The hour of the ROX thresholds (2, 6 or 12) that `hours` of high flow are read against, or null (`ROX_HOUR_WINDOW_H`). */
+export function roxThresholdHour(hours: number): number | null {
+  if (!Number.isFinite(hours)) return null;
+  for (const hour of ROX_FAILURE_BELOW.keys()) if (Math.abs(hours - hour) <= ROX_HOUR_WINDOW_H) return hour;
+  return null;
+}
+
+/** Where a ROX index falls against the thresholds of `hour` (2, 6 or 12 h): below failure's, at or above success's, or between (`roca-2019`). */
+export function roxSideAt(rox: number, hour: number): 'failure' | 'between' | 'success' | null {
+  const failure = ROX_FAILURE_BELOW.get(hour);
+  if (failure === undefined || !Number.isFinite(rox)) return null;
+  return rox < failure ? 'failure' : rox >= ROX_SUCCESS_FROM ? 'success' : 'between';
+}
+
 /**
  * Oxygenation index: FiO2 × mean airway pressure (cmH2O) × 100 / PaO2 (mmHg).
  * `null` unless 0 < FiO2 ≤ 1, MAP ≥ 0 and PaO2 > 0. Sources: `ortiz-1987`, `palicc-2015`.
