@@ -53,9 +53,10 @@ export interface DerivedValue {
   readonly estimate: boolean;
   readonly notes: readonly string[];
   /**
-   * A few words written beside the value wherever it is shown on its own (`show`, an inlay hint)
-   * where a condition its source sets is not met: `SpO2 > 97 %` beside an S/F ratio. Null
-   * elsewhere; a note says why, in the hover and JSON.
+   * A few words written beside the value wherever it is shown on its own (`show`, an inlay hint):
+   * a condition its source sets that is not met (`SpO2 > 97 %` beside an S/F ratio), or the
+   * published threshold it is read against (`6 h: < 3.47` beside a ROX index after 6 h of high
+   * flow). Null elsewhere; a note says it in full, in the hover and JSON.
    */
   readonly caveat: string | null;
   /** True when any input (directly or through another derived value) was carried forward. */
