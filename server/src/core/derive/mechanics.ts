@@ -163,6 +163,7 @@ export const drivingPressureDef = defineDerived({
   decimals: 0,
   category: 'mechanics',
   formula: '{Pplat} − {PEEP}',
+  otherFormulas: ['{Pplat} − {PEEPtot}'],
   source: SOURCES['amato-2015'],
   anchors: ['plateau'],
   compute(c) {
@@ -188,6 +189,7 @@ export const complianceStaticDef = defineDerived({
   decimals: 0,
   category: 'mechanics',
   formula: '{VT} ÷ ({Pplat} − {PEEP})',
+  otherFormulas: ['{VT} ÷ ({Pplat} − {PEEPtot})'],
   source: SOURCES['respiratory-mechanics'],
   anchors: ['plateau'],
   compute(c) {
