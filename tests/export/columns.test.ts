@@ -46,6 +46,8 @@ describe('the column list', () => {
       'mechanical_power_surrogate_J_min', 'amplitude_cmH2O', 'base_excess_venous_mmol_L',
       'mean_arterial_pressure_mmHg', 'paco2_etco2_difference_mmHg', 'mean_bp_mmHg', 'insp_pressure_cmH2O',
       'fio2_in_force',
+      'peep_total_cmH2O',
+      'autopeep_cmH2O',
     ]);
   });
 

@@ -324,7 +324,7 @@ describe('codes that fit the value', () => {
     expect(byId(b, 'obs-0-etco2')?.valueQuantity).toEqual({ value: 35, unit: 'mmHg', system: 'http://unitsofmeasure.org', code: 'mm[Hg]' });
     const ids = observations(b).map((o) => o.id);
     for (const id of ['obs-0-mode', 'obs-1-device', 'obs-header-altitude', 'obs-header-barometric', 'obs-0-barometric']) expect(ids).not.toContain(id);
-    expect(FIELDS.filter((f) => isObservedField(f) && loincCodesOf(f).length === 0).map((f) => f.id)).toEqual(['ipap', 'epap', 'cpap_level', 'vent_rate', 'amplitude', 'insp_pressure', 'minute_volume']);
+    expect(FIELDS.filter((f) => isObservedField(f) && loincCodesOf(f).length === 0).map((f) => f.id)).toEqual(['ipap', 'epap', 'cpap_level', 'vent_rate', 'peep_total', 'autopeep', 'amplitude', 'insp_pressure', 'minute_volume']);
     expect(FIELDS.filter((f) => !isObservedField(f)).map((f) => f.id)).toEqual(['sex', 'altitude', 'barometric', 'gas_unit', 'device', 'mode']);
     expect(validator.validate(b, true)).toEqual([]);
   });

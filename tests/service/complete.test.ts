@@ -245,7 +245,7 @@ describe('units', () => {
   });
 
   it('offers a section\'s own keys first, then those it shares with other lines', () => {
-    expect(labels('vent |')).toEqual(['mode', 'vt', 'rate', 'peep', 'plateau', 'peak', 'flow', 'map', 'amplitude', 'ps', 'pinsp', 've', 'etco2', 'fio2']);
+    expect(labels('vent |')).toEqual(['mode', 'vt', 'rate', 'peep', 'peep_total', 'autopeep', 'plateau', 'peak', 'flow', 'map', 'amplitude', 'ps', 'pinsp', 've', 'etco2', 'fio2']);
     expect(labels('abg |').slice(0, 4)).toEqual(['ph', 'pco2', 'po2', 'hco3']);
   });
 

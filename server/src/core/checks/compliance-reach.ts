@@ -31,9 +31,11 @@ import { modeFamily } from '../fields/modes';
 
 const CEILING = COMPLIANCE_CEILING_ML_PER_CMH2O;
 
-/** The input of a derived value that is the end-expiratory pressure: PEEP, EPAP or CPAP as its line names it. */
+/** The input of a derived value that is the end-expiratory pressure: PEEP, EPAP or CPAP as its line names it, or the total PEEP. */
 function endExpiratoryName(d: DerivedValue): string {
-  return d.inputs.find((t) => t.name !== 'Pplat' && t.name !== 'Ppeak' && t.name !== 'VT')?.name ?? 'PEEP';
+  const name = d.inputs.find((t) => t.name !== 'Pplat' && t.name !== 'Ppeak' && t.name !== 'VT')?.name ?? 'PEEP';
+  // A total PEEP of an end-expiratory hold (derive/mechanics.ts `elasticBase`) is named in words.
+  return name === 'PEEPtot' ? 'total PEEP' : name;
 }
 
 /** A formula with its numbers, without its result: `450 ÷ (12 − 10)` of `450 ÷ (12 − 10) = 225 mL/cmH2O`. */

@@ -31,6 +31,7 @@ import { placePressureUnlikeAltitude } from './place-pressure';
 import { therapyOverlap } from './therapy-overlap';
 import { gasAboveFio2Change } from './gas-above-change';
 import { unusualBlank } from './unusual-blank';
+import { totalPeepImpossible } from './total-peep';
 import { fio2OutOfRange, impossibleValue, saturationAbove100, unusualValue } from './value-bounds';
 
 export const CHECKS: readonly CheckDef[] = validateCheckList([
@@ -85,6 +86,7 @@ export const CHECKS: readonly CheckDef[] = validateCheckList([
   respiratoryFailureReading,
   acidBaseReading,
   venousGasReading,
+  totalPeepImpossible,
   possibleName,
   birthDate,
   calendarDate,

@@ -107,6 +107,8 @@ export interface DerivedDef {
   readonly category: DerivedCategory;
   /** Formula template: input names in braces, e.g. `{PaO2} ÷ {FiO2}`. */
   readonly formula: string;
+  /** Other forms of the formula a value may be worked out with, shown beside the default in the docs (plateau − total PEEP). */
+  readonly otherFormulas?: readonly string[];
   readonly source: string;
   /**
    * Field ids whose presence at this timepoint makes the value expected: when none is stated

@@ -12,7 +12,7 @@ const cell = (s: string) => s.replace(/\|/g, '\\|').replace(/\n/g, ' ');
 export function renderDerivedTable(): string {
   const out = [DERIVED_TABLE_START, '', '| Id | Value | Unit | Formula (default form) | Source |', '|---|---|---|---|---|'];
   for (const d of DERIVED) {
-    out.push(`| \`${d.id}\` | ${cell(d.label)} (${cell(d.short)}) | ${d.unit || '—'} | ${cell(d.formula.replace(/[{}]/g, ''))} | ${cell(d.source)} |`);
+    out.push(`| \`${d.id}\` | ${cell(d.label)} (${cell(d.short)}) | ${d.unit || '—'} | ${cell([d.formula, ...(d.otherFormulas ?? [])].join(' or ').replace(/[{}]/g, ''))} | ${cell(d.source)} |`);
   }
   out.push('', DERIVED_TABLE_END);
   return out.join('\n');

@@ -141,6 +141,17 @@ function formulaExtras(template: string, peep: Term): ValueExtras | undefined {
   return formula === undefined ? undefined : { formula };
 }
 
+/**
+ * The end-expiratory pressure the elastic pressure of a breath is measured from: the total PEEP of an
+ * end-expiratory hold where one is written at this timepoint (a reading: the set PEEP plus any
+ * intrinsic PEEP), else the PEEP in force (`peepLike`). Plateau − total PEEP is the pressure across
+ * the respiratory system at the end of inspiration above that at the end of expiration (common
+ * practice, no source; Amato 2015 write plateau − PEEP, and which PEEP they meant is from memory).
+ */
+function elasticBase(c: DeriveContext): Term | null {
+  return c.field('peep_total', 'PEEPtot') ?? c.peepLike();
+}
+
 const LUNG_PROTECTIVE_NOTES: readonly string[] = ['lung-protective target 6 mL/kg (4–8) in the ARDS Network protocol'];
 const OSCILLATION_VOLUME_NOTES: readonly string[] = ['in HFOV the volume of one oscillation, not compared with the lung-protective range of conventional breaths'];
 
@@ -152,6 +163,7 @@ export const drivingPressureDef = defineDerived({
   decimals: 0,
   category: 'mechanics',
   formula: '{Pplat} − {PEEP}',
+  otherFormulas: ['{Pplat} − {PEEPtot}'],
   source: SOURCES['amato-2015'],
   anchors: ['plateau'],
   compute(c) {
@@ -159,7 +171,7 @@ export const drivingPressureDef = defineDerived({
     if (!plat) return { kind: 'na', reason: 'needs a plateau pressure (inspiratory hold)' };
     const hfov = c.oscillationBreath();
     if (hfov) return hfov;
-    const peep = c.peepLike();
+    const peep = elasticBase(c);
     if (!peep) return c.missing([peep, c.peepNeed()]);
     const dp = drivingPressure(plat.value, peep.value);
     // Shown beside the 15 cmH2O flag (PN405): 15.4 as 15.4, not as 15 next to "above 15".
@@ -177,6 +189,7 @@ export const complianceStaticDef = defineDerived({
   decimals: 0,
   category: 'mechanics',
   formula: '{VT} ÷ ({Pplat} − {PEEP})',
+  otherFormulas: ['{VT} ÷ ({Pplat} − {PEEPtot})'],
   source: SOURCES['respiratory-mechanics'],
   anchors: ['plateau'],
   compute(c) {
@@ -185,7 +198,7 @@ export const complianceStaticDef = defineDerived({
     if (!plat) return { kind: 'na', reason: 'needs a plateau pressure' };
     const hfov = c.oscillationBreath();
     if (hfov) return hfov;
-    const peep = c.peepLike();
+    const peep = elasticBase(c);
     if (!vt || !peep) return c.missing([vt, c.need('vt')], [peep, c.peepNeed()]);
     return c.value(complianceStatic(vt.value, plat.value, peep.value), [vt, plat, peep], formulaExtras('{VT} ÷ ({Pplat} − {PEEP})', peep));
   },

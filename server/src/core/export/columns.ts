@@ -20,7 +20,8 @@
  *   mean_arterial_pressure_mmHg (estimated from the blood pressure), paco2_etco2_difference_mmHg,
  *   mean_bp_mmHg (a mean arterial pressure as measured), insp_pressure_cmH2O (the set inspiratory
  *   pressure of pressure control, above PEEP), fio2_in_force (the FiO2 the calculations use: 0.21
- *   on room air, where fio2_fraction, the FiO2 written, is empty).
+ *   on room air, where fio2_fraction, the FiO2 written, is empty), peep_total_cmH2O and autopeep_cmH2O
+ *   (total and intrinsic PEEP of an end-expiratory hold).
  *
  * Cells:
  * - Field values are those in force at the timepoint: stated there, carried from an earlier
@@ -454,6 +455,8 @@ const ADDED_LATER: readonly { readonly kind: 'field' | 'derived' | 'in-force'; r
   { kind: 'field', id: 'insp_pressure' },
   // The FiO2 the calculations use: `fio2_fraction` is the FiO2 written, empty on room air.
   { kind: 'in-force', id: 'fio2' },
+  { kind: 'field', id: 'peep_total' },
+  { kind: 'field', id: 'autopeep' },
 ];
 
 /**
