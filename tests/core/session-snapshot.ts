@@ -49,7 +49,7 @@ function derived(d: DerivedValue): unknown {
   return {
     id: d.id, label: d.label, short: d.short, category: d.category, value: d.value, unit: d.unit, decimals: d.decimals,
     range: d.range, formula: d.formula, substituted: d.substituted, template: d.template, inputs: d.inputs.map(term), source: d.source,
-    estimate: d.estimate, notes: d.notes, usesCarried: d.usesCarried, line: d.line,
+    estimate: d.estimate, notes: d.notes, caveat: d.caveat, usesCarried: d.usesCarried, line: d.line,
   };
 }
 

@@ -12,6 +12,8 @@ import { derivedHover } from '../../server/src/core/service';
 import { run } from '../../server/src/cli/main';
 import { memoryIo } from '../helpers/memory-io';
 import { derivation } from './helpers';
+import { NoteSession } from '../../server/src/core/session';
+import { sameAsJson, snapshot } from '../core/session-snapshot';
 
 const ROCA_NOTE = '≥ 4.88 at 2, 6 or 12 h of high flow was associated with success; below 2.85 at 2 h, 3.47 at 6 h and 3.85 at 12 h with failure (Roca 2019)';
 
@@ -128,5 +130,21 @@ describe('the reading by the hours of high flow is shown', () => {
     const io = memoryIo({ stdin: text, env: { NO_COLOR: '1' }, tty: false });
     await run(['check', '--format', 'json', '-'], io);
     expect(io.out()).toContain(reading);
+  });
+});
+
+describe('the hours of high flow in an open note', () => {
+  it('follow an edit of the time the run began, which changes no value of the later timepoint', () => {
+    // Air at 07:00, high flow from 09:00 (or 11:00 after the edit), vitals at 15:00: ROX read at
+    // 6 h, then at 4 h (no threshold). (97 ÷ 0.5) ÷ 30 = 6.47 (Roca 2016: SpO2 ÷ FiO2 ÷ RR).
+    const note = (start: string) => `@ day 1 07:00\noxygen room air\nvitals rr 24, spo2 90 %\n@ day 1 ${start}\noxygen hfnc 50 L/min, fio2 0.5\n@ day 1 15:00\nvitals rr 30, spo2 97 %\n`;
+    const session = new NoteSession();
+    for (const text of [note('09:00'), note('11:00'), note('09:00')]) {
+      const r = session.update(text);
+      expect(sameAsJson(snapshot(r), snapshot(checkNote(text)))).toBe(true);
+    }
+    const rox = (text: string) => session.update(text).analysis.derivation(2).derived.find((d) => d.id === 'rox_index')!;
+    expect(rox(note('09:00')).caveat).toBe('6 h: ≥ 4.88');
+    expect(rox(note('11:00')).caveat).toBeNull();
   });
 });
