@@ -139,7 +139,9 @@ describe('the hours of high flow in an open note', () => {
     // 6 h, then at 4 h (no threshold). (97 ÷ 0.5) ÷ 30 = 6.47 (Roca 2016: SpO2 ÷ FiO2 ÷ RR).
     const note = (start: string) => `@ day 1 07:00\noxygen room air\nvitals rr 24, spo2 90 %\n@ day 1 ${start}\noxygen hfnc 50 L/min, fio2 0.5\n@ day 1 15:00\nvitals rr 30, spo2 97 %\n`;
     const session = new NoteSession();
-    for (const text of [note('09:00'), note('11:00'), note('09:00')]) {
+    // And an edit of the device before the run, which makes the run begin at the note's first timepoint.
+    const earlier = note('09:00').replace('oxygen room air', 'oxygen hfnc 40 L/min, fio2 0.5');
+    for (const text of [note('09:00'), note('11:00'), note('09:00'), earlier, note('09:00')]) {
       const r = session.update(text);
       expect(sameAsJson(snapshot(r), snapshot(checkNote(text)))).toBe(true);
     }
