@@ -228,6 +228,8 @@ describe('null safety (fast-check)', () => {
     berlinOxygenationBand: totality(fc.tuple(d), gas.berlinOxygenationBand),
     sfRatio: totality(fc.tuple(d, d), gas.sfRatio),
     roxIndex: totality(fc.tuple(d, d, d), gas.roxIndex),
+    roxThresholdHour: totality(fc.tuple(d), gas.roxThresholdHour),
+    roxSideAt: totality(fc.tuple(d, d), gas.roxSideAt),
     oxygenationIndex: totality(fc.tuple(d, d, d), gas.oxygenationIndex),
     oxygenSaturationIndex: totality(fc.tuple(d, d, d), gas.oxygenSaturationIndex),
     saturationFromPo2Severinghaus: totality(fc.tuple(d), gas.saturationFromPo2Severinghaus),

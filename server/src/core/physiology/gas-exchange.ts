@@ -232,7 +232,7 @@ export const ROX_FAILURE_BELOW: ReadonlyMap<number, number> = new Map([[2, 2.85]
  */
 export const ROX_HOUR_WINDOW_H = 1;
 
-/** The hour of the ROX thresholds (2, 6 or 12) that `hours` of high flow are read against, or null (`ROX_HOUR_WINDOW_H`). */
+/** The hour of the ROX thresholds (2, 6 or 12: `roca-2019`) that `hours` of high flow are read against, or null (`ROX_HOUR_WINDOW_H`). */
 export function roxThresholdHour(hours: number): number | null {
   if (!Number.isFinite(hours)) return null;
   for (const hour of ROX_FAILURE_BELOW.keys()) if (Math.abs(hours - hour) <= ROX_HOUR_WINDOW_H) return hour;
