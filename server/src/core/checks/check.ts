@@ -5,7 +5,7 @@
  * and becomes an internal finding, never a crash.
  */
 import type { NoteAnalysis } from '../analysis/analyse';
-import type { Timepoint } from '../analysis/model';
+import type { InputValue, Timepoint } from '../analysis/model';
 import type { TimepointDerivation } from '../derive/model';
 import type { Settings } from '../settings';
 import type { LineNode } from '../syntax/tree';
@@ -127,4 +127,11 @@ export function forHeaderLines(ctx: CheckContext, visit: (ctx: CheckContext, nod
   const lines = ctx.analysis.tree.lines;
   const end = headerLineCount(ctx.analysis);
   for (let i = 0; i < end; i++) visit(ctx, lines[i]!);
+}
+
+/** The value in force of `id` at a timepoint (stated there or carried), when it is usable and has a number; else null. */
+export function usableNumber(tp: Timepoint, id: string): { input: InputValue; value: number } | null {
+  const input = tp.values.get(id);
+  if (!input?.stated.usable || input.stated.value === null) return null;
+  return { input, value: input.stated.value };
 }

@@ -5,10 +5,9 @@
  * was stated there. PEEP and peak are compared only where no plateau is in force: with one, a PEEP
  * above the peak puts one of the other two pairs out of order, and that one is reported.
  */
-import type { InputValue, Timepoint } from '../analysis/model';
 import { toRange } from '../syntax/tree';
 import { decimalsAgainst, formatShort } from '../util/format';
-import { defineCheck, type TimepointContext } from './check';
+import { defineCheck, usableNumber, type TimepointContext } from './check';
 import { deviceInForce, endExpiratoryField, nivPressuresNotGiven } from '../analysis/noninvasive-support';
 import { carriedFromText } from '../present';
 
@@ -32,12 +31,6 @@ function orderCheck(ctx: TimepointContext, lowId: string, highId: string, messag
       ? { related: [{ range: toRange(o.line, o.span), message: o.kind === 'carried' ? carriedFromText(o, 'here') : 'carried from here' }] }
       : {}),
   });
-}
-
-function usableNumber(tp: Timepoint, id: string): { input: InputValue; value: number } | null {
-  const input = tp.values.get(id);
-  if (!input?.stated.usable || input.stated.value === null) return null;
-  return { input, value: input.stated.value };
 }
 
 /** A pressure shown beside the one it exceeds, with the decimals that keep the two apart (10.04 above 10, never 10 above 10). */

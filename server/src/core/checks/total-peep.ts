@@ -5,19 +5,13 @@
  * intrinsic PEEP other than total − set, each beyond 1 cmH2O of rounding, is consistent with a
  * transcription error or a hold not made at rest (respiratory mechanics, common practice, no source).
  */
-import type { InputValue, Timepoint } from '../analysis/model';
+import type { InputValue } from '../analysis/model';
 import { toRange } from '../syntax/tree';
 import { formatShort } from '../util/format';
-import { defineCheck } from './check';
+import { defineCheck, usableNumber } from './check';
 
 /** What the two readings of one hold may differ by from rounding on the display (common practice, no source). */
 export const TOTAL_PEEP_TOLERANCE_CMH2O = 1;
-
-function usable(tp: Timepoint, id: string): { input: InputValue; value: number } | null {
-  const input = tp.values.get(id);
-  if (!input?.stated.usable || input.stated.value === null) return null;
-  return { input, value: input.stated.value };
-}
 
 const n = (v: number): string => formatShort(v, 1);
 
@@ -37,10 +31,10 @@ export const totalPeepImpossible = defineCheck({
     const tp = ctx.timepoint;
     // Most timepoints have neither reading: asked without building the values.
     if (tp.values.numberOf('peep_total') === null && tp.values.numberOf('autopeep') === null) return;
-    const total = usable(tp, 'peep_total');
-    const set = usable(tp, 'peep');
-    const plateau = usable(tp, 'plateau');
-    const intrinsic = usable(tp, 'autopeep');
+    const total = usableNumber(tp, 'peep_total');
+    const set = usableNumber(tp, 'peep');
+    const plateau = usableNumber(tp, 'plateau');
+    const intrinsic = usableNumber(tp, 'autopeep');
     const at = (v: { input: InputValue }) => toRange(v.input.stated.line, v.input.stated.item.span);
     const here = (v: { input: InputValue }) => v.input.origin.kind === 'here';
     if (total && here(total)) {
