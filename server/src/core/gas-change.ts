@@ -133,10 +133,16 @@ export function changeSincePreviousGas(result: NoteResult, index: number): GasCh
 
 /** The device of the oxygen line in force (stated or carried, not the header's), with whether it was carried. */
 function deviceAt(tp: Timepoint): { readonly word: string; readonly carried: boolean } | null {
-  const origin = tp.values.originOf('device');
-  if (origin !== 'here' && origin !== 'carried') return null;
+  const carried = carriedIfInForce(tp, 'device');
+  if (carried === null) return null;
   const word = deviceInForce(tp.values);
-  return word === null ? null : { word, carried: origin === 'carried' };
+  return word === null ? null : { word, carried };
+}
+
+/** Whether the value of `id` in force at this timepoint was carried in (false: stated there); null when none is, or when it comes from the header. */
+function carriedIfInForce(tp: Timepoint, id: string): boolean | null {
+  const origin = tp.values.originOf(id);
+  return origin === 'here' ? false : origin === 'carried' ? true : null;
 }
 
 function deviceChange(earlier: Timepoint, later: Timepoint): DeviceChange | null {
@@ -179,10 +185,10 @@ interface Shown {
 
 /** The number of a setting in force at this timepoint (canonical unit), stated there or carried in; null when none is, or when it comes from the header. */
 function inForce(tp: Timepoint, id: string): { readonly value: number; readonly carried: boolean } | null {
-  const origin = tp.values.originOf(id);
-  if (origin !== 'here' && origin !== 'carried') return null;
+  const carried = carriedIfInForce(tp, id);
+  if (carried === null) return null;
   const value = tp.values.numberOf(id);
-  return value === null ? null : { value, carried: origin === 'carried' };
+  return value === null ? null : { value, carried };
 }
 
 function valueAt(result: NoteResult, tp: Timepoint, key: ChangeKey, gasUnit: TrendGasUnit): Shown | null {
