@@ -328,6 +328,17 @@ describe('codes that fit the value', () => {
     expect(FIELDS.filter((f) => !isObservedField(f)).map((f) => f.id)).toEqual(['sex', 'altitude', 'barometric', 'gas_unit', 'device', 'mode']);
     expect(validator.validate(b, true)).toEqual([]);
   });
+  it('a total PEEP and an intrinsic PEEP read off the ventilator (no LOINC code of their own) are Observations with their label alone, not settings, and the Bundle stays valid', () => {
+    const b = toFhirBundle('a.pneu', checked('@ day 1 08:00\nvent mode VC, vt 420, rate 22, peep 8, fio2 0.5, plateau 27, tpeep 13, ipeep 5'), noAnchor);
+    for (const [id, label, value] of [['obs-0-peep-total', 'Total PEEP', 13], ['obs-0-autopeep', 'Intrinsic PEEP', 5]] as const) {
+      expect(codeOf(b, id)?.coding).toBeUndefined();
+      expect(codeOf(b, id)?.text, id).toMatch(new RegExp(label, 'i'));
+      expect(byId(b, id)?.category, id).toBeUndefined(); // measured at an end-expiratory hold: not a setting
+      expect(byId(b, id)?.valueQuantity, id).toEqual({ value, unit: 'cmH2O', system: 'http://unitsofmeasure.org', code: 'cm[H2O]' });
+    }
+    expect(validator.validate(b, true)).toEqual([]);
+    for (const resource of observations(b)) expect(validator.validate(resource, true), resource.id).toEqual([]);
+  });
   it('a set inspiratory pressure (`pinsp`, no LOINC code found on a LOINC or HL7 page) is a therapy Observation with its label alone, and the Bundle stays valid', () => {
     const b = toFhirBundle('a.pneu', checked('@ day 1 08:00\nvent mode PC, pinsp 18, peep 8, rate 20, fio2 0.5\n@ +1h\nvent fio2 0.4'), noAnchor);
     expect(codeOf(b, 'obs-0-insp-pressure')).toEqual({ text: 'Set inspiratory pressure' });
