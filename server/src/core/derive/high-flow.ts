@@ -4,6 +4,7 @@
  * through its context (`DeriveContext.highFlowHours`).
  */
 import type { Timepoint } from '../analysis/model';
+import { deviceInForce } from '../analysis/noninvasive-support';
 import { ROX_FAILURE_BELOW, ROX_HOUR_WINDOW_H, ROX_SUCCESS_FROM, roxSideAt, roxThresholdHour } from '../physiology';
 import { formatNumber, formatShort } from '../util/format';
 
@@ -19,10 +20,13 @@ const HIGH_FLOW = 'hfnc';
 /** No run is looked back further than this (minutes): beyond the last hour a threshold is read at, only "at least" matters. */
 const LOOK_BACK_MINUTES = (12 + ROX_HOUR_WINDOW_H) * 60;
 
-/** Whether high-flow nasal oxygen is the usable device in force at a timepoint (stated there or carried). */
-function onHighFlow(tp: Timepoint): boolean {
-  const device = tp.values.get('device');
-  return device !== undefined && device.stated.usable && device.stated.word === HIGH_FLOW;
+/**
+ * Whether high-flow nasal oxygen is the device in force at a timepoint (stated there, carried, or
+ * kept by a later oxygen line that names no device): read through `deviceInForce`, the one reading
+ * of the device the rest of the core asks (a device word is usable exactly when it is read).
+ */
+export function onHighFlow(tp: Timepoint): boolean {
+  return deviceInForce(tp.values) === HIGH_FLOW;
 }
 
 /**
