@@ -1,7 +1,7 @@
 // An infant's bare height. Under 18 years a bare height is read against a child's size, from the
 // field's hard minimum (20 cm), and a number impossible in cm is offered the unit that makes it a
 // child's size: an 8-month-old's `height 10` was offered inches, 25 cm. Under a year
-// (INFANT_UNTIL_YEARS) an infant's length has a floor that rises with age (`infantLengthMinCm`):
+// an infant's length has a floor that rises with age (`childHeightMinCm`; after a year it goes on, tests/core/child-height.test.ts):
 // - until 16 weeks after birth, 24 cm: a girl born at 24+0 weeks is 24.0 cm long at −3 SD
 //   (INTERGROWTH-21st very preterm size at birth, read in its reproduction in pygrowthstandards);
 //   it was 30 cm, "a newborn of 24 weeks of gestation" (from memory), which is that newborn's
@@ -15,7 +15,7 @@
 import { describe, expect, it } from 'vitest';
 import { checkNote } from '../../server/src/core';
 import type { StatedValue } from '../../server/src/core';
-import { EARLIEST_BIRTH_WEEKS_BEFORE_TERM, INFANT_LENGTH_MARGIN_CM, infantLengthMinCm } from '../../server/src/core/analysis/bounds';
+import { CHILD_HEIGHT_MARGIN_CM, childHeightMinCm, EARLIEST_BIRTH_WEEKS_BEFORE_TERM } from '../../server/src/core/analysis/bounds';
 import { lengthForAgeGirlsCm, PRETERM_GIRL_LENGTH_MINUS_3SD_CM } from '../../server/src/core/physiology/growth';
 
 const findings = (text: string) => checkNote(text).findings.map((f) => `${f.code} ${f.range.start.line + 1}`);
@@ -76,9 +76,11 @@ describe('an infant\'s bare height: no unit is offered that makes it shorter tha
     expect(checkNote('patient age 10 mo, height 31 cm').findings[0]!.message).toMatch(/49/);
   });
 
-  it('from a year on a child\'s length keeps its window from the hard minimum', () => {
-    expect(findings('patient age 1 y, height 25 cm')).toEqual([]);
-    expect(findings('patient age 12 mo, height 25')).toEqual([]);
+  it('from a year on a bare length keeps its window from the hard minimum, and the floor goes on as a usual minimum (tests/core/child-height.test.ts)', () => {
+    // At a year the floor is 52 cm: `height 25 cm` was usual, and is not (PN302); read in cm and used.
+    expect(findings('patient age 1 y, height 25 cm')).toEqual(['PN302 1']);
+    expect(findings('patient age 12 mo, height 25')).toEqual(['PN302 1']);
+    expect(height('patient age 12 mo, height 25')).toEqual([25, true, null]);
     // An older child's impossible number is still offered a child's size: 10 in is 25 cm.
     expect(findings('patient age 2 y, height 10')).toEqual(['PN204 1']);
   });
@@ -89,23 +91,23 @@ describe('an infant\'s bare height: no unit is offered that makes it shorter tha
   });
 });
 
-describe('the floor of an infant\'s length (`infantLengthMinCm`) flags no real child', () => {
+describe('the floor of an infant\'s length (`childHeightMinCm` in the first year) flags no real child', () => {
   it('is 24 cm until 16 weeks after birth, then the girls\' −3 SD at the age corrected for a birth at 24 weeks, less 10 cm', () => {
-    expect(infantLengthMinCm(0)).toBe(24);
-    expect(infantLengthMinCm(111 / 365.25)).toBe(24);
+    expect(childHeightMinCm(0)).toBe(24);
+    expect(childHeightMinCm(111 / 365.25)).toBe(24);
     // 8 months: 243.5 days, corrected 131.5; −3 SD 56.17 cm (between days 122 and 152) − 10 → 46.
-    expect(infantLengthMinCm(8 / 12)).toBe(46);
+    expect(childHeightMinCm(8 / 12)).toBe(46);
     // 10 months: 304.4 days, corrected 192.4; −3 SD 59.38 cm (between days 183 and 213) − 10 → 49.
-    expect(infantLengthMinCm(10 / 12)).toBe(49);
+    expect(childHeightMinCm(10 / 12)).toBe(49);
   });
 
   it('on every day of the first year it is at most the −3 SD of a girl born at 24 weeks (24.0 cm) or, from term, her −3 SD at the corrected age less 10 cm, and never above a term girl\'s −3 SD', () => {
     for (let day = 0; day < 365; day++) {
-      const floor = infantLengthMinCm(day / 365.25);
+      const floor = childHeightMinCm(day / 365.25);
       const corrected = day - EARLIEST_BIRTH_WEEKS_BEFORE_TERM * 7;
-      expect(floor).toBeLessThanOrEqual(corrected < 0 ? PRETERM_GIRL_LENGTH_MINUS_3SD_CM : Math.max(PRETERM_GIRL_LENGTH_MINUS_3SD_CM, lengthForAgeGirlsCm(corrected, -3)! - INFANT_LENGTH_MARGIN_CM));
+      expect(floor).toBeLessThanOrEqual(corrected < 0 ? PRETERM_GIRL_LENGTH_MINUS_3SD_CM : Math.max(PRETERM_GIRL_LENGTH_MINUS_3SD_CM, lengthForAgeGirlsCm(corrected, -3)! - CHILD_HEIGHT_MARGIN_CM));
       expect(floor).toBeLessThan(lengthForAgeGirlsCm(day, -3)! - 10);
-      if (day > 0) expect(floor).toBeGreaterThanOrEqual(infantLengthMinCm((day - 1) / 365.25));
+      if (day > 0) expect(floor).toBeGreaterThanOrEqual(childHeightMinCm((day - 1) / 365.25));
     }
   });
 });

@@ -6,7 +6,8 @@
 // is read against that hour's thresholds (common practice, no source). Invented patients and times.
 import { describe, expect, it } from 'vitest';
 import { checkNote } from '../../server/src/core/check-note';
-import { highFlowHoursAt, roxAtHour } from '../../server/src/core/derive/high-flow';
+import { highFlowHoursAt, onHighFlow, roxAtHour } from '../../server/src/core/derive/high-flow';
+import { deviceInForce } from '../../server/src/core/analysis/noninvasive-support';
 import { roxSideAt, roxThresholdHour } from '../../server/src/core/physiology';
 import { derivedHover } from '../../server/src/core/service';
 import { run } from '../../server/src/cli/main';
@@ -148,5 +149,27 @@ describe('the hours of high flow in an open note', () => {
     const rox = (text: string) => session.update(text).analysis.derivation(2).derived.find((d) => d.id === 'rox_index')!;
     expect(rox(note('09:00')).caveat).toBe('6 h: ≥ 4.88');
     expect(rox(note('11:00')).caveat).toBeNull();
+  });
+});
+
+describe('high flow in force is read as the rest of the core reads the device (`deviceInForce`)', () => {
+  it('a device carried from an earlier timepoint, and kept by an oxygen line that names none, is high flow at every timepoint after', () => {
+    // High flow from 09:00; at 12:00 an oxygen line with a new FiO2 and no device keeps it
+    // (`deviceSets`); at 15:00 only vitals. 09:00 to 15:00: 6 h, the run unbroken.
+    const text = started('@ 12:00\noxygen fio2 0.5\n@ 15:00\nvitals rr 30, spo2 95 %\n');
+    const tps = checkNote(text).analysis.timeline.timepoints;
+    expect(tps.map((tp) => tp.values.originOf('device'))).toEqual(['here', 'here', 'carried', 'carried']);
+    expect(tps.map((tp) => deviceInForce(tp.values))).toEqual(['room air', 'hfnc', 'hfnc', 'hfnc']);
+    expect(tps.map(onHighFlow)).toEqual(tps.map((tp) => deviceInForce(tp.values) === 'hfnc'));
+    expect(tps.map(onHighFlow)).toEqual([false, true, true, true]);
+    expect(hoursAt(text)).toEqual({ hours: 6, atLeast: false });
+    expect(hoursAt(text, 2)).toEqual({ hours: 3, atLeast: false });
+  });
+
+  it('a mask carried after high flow ends the run at every timepoint it is in force', () => {
+    const text = started('@ 11:00\noxygen mask 10 L/min\n@ 12:00\nvitals rr 30, spo2 95 %\n');
+    const tps = checkNote(text).analysis.timeline.timepoints;
+    expect(tps.map(onHighFlow)).toEqual([false, true, false, false]);
+    expect(hoursAt(text)).toBeNull();
   });
 });

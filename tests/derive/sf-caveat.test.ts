@@ -6,6 +6,7 @@
 // Invented values.
 import { describe, expect, it } from 'vitest';
 import { checkNote } from '../../server/src/core/check-note';
+import { besideCaveat } from '../../server/src/core/derive/model';
 import { inlayHints } from '../../server/src/core/service';
 import { run } from '../../server/src/cli/main';
 import { memoryIo } from '../helpers/memory-io';
@@ -35,5 +36,22 @@ describe('an S/F ratio from an SpO2 above 97 %', () => {
     const io = memoryIo({ stdin: note(99), env: { NO_COLOR: '1' }, tty: false });
     await run(['show', '-'], io);
     expect(io.out()).toContain(' S/F 248 (SpO2 > 97 %) · ');
+  });
+});
+
+describe('a caveat is written beside a value in one way (`besideCaveat`), in `show` as in the inlay hint', () => {
+  it('in parentheses after the text, or the text alone where there is none; after nothing, the caveat alone after a blank', () => {
+    expect(besideCaveat('S/F 248', sf(99))).toBe('S/F 248 (SpO2 > 97 %)');
+    expect(besideCaveat('S/F 243', sf(97))).toBe('S/F 243');
+    expect(besideCaveat('', sf(99))).toBe(' (SpO2 > 97 %)');
+    expect(besideCaveat('*', { caveat: '6 h: < 3.47' })).toBe('* (6 h: < 3.47)');
+  });
+
+  it('the hint and `show` write the same words around the same number', async () => {
+    const io = memoryIo({ stdin: note(99), env: { NO_COLOR: '1' }, tty: false });
+    await run(['show', '-'], io);
+    const hint = oxygenationHints(99)[0]!.split(' · ')[0]!;
+    expect(hint).toBe(besideCaveat('S/F 248', sf(99)));
+    expect(io.out()).toContain(` ${hint} · `);
   });
 });

@@ -12,6 +12,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import {
+  heightForAgeShorterCm,
   lengthForAgeGirlsCm,
   PRETERM_GIRL_LENGTH_MINUS_3SD_CM,
   SOURCES,
@@ -76,5 +77,32 @@ describe('a girl born at 24+0 weeks (INTERGROWTH-21st very preterm size at birth
   it('each source says where it was read', () => {
     expect(SOURCES['who-length-for-age-2006']).toMatch(/read in its reproduction in the WHO's own R package anthro/);
     expect(SOURCES['intergrowth-very-preterm-2016']).toMatch(/24\.0 cm at −3 SD, read in its reproduction/);
+  });
+});
+
+describe('height-for-age by whole year of the sex shorter at −3 SD (WHO Child Growth Standards 2006 to 4 years, WHO 2007 reference from 5; read in the WHO packages anthro and anthroplus)', () => {
+  /** Rows as read: [years, M, S]. 2006 girls days 365, 731 (height), 1096, 1461; 2007 girls months 60, 72, 216, 228; boys months 120, 144. */
+  const READ: readonly (readonly [number, number, number])[] = [
+    [1, 74.0049, 0.03479], [2, 85.7299, 0.03764], [3, 95.0572, 0.04007], [4, 102.7312, 0.04193],
+    [5, 109.0725, 0.04346], [6, 115.1244, 0.04447], [10, 137.7795, 0.04626], [12, 149.0807, 0.04753], [18, 163.0595, 0.04053], [19, 163.1548, 0.04009],
+  ];
+  it.each(READ)('at %d years: M %d cm, S %d: the median and −3 SD are M and M × (1 − 3S)', (years, m, s) => {
+    expect(heightForAgeShorterCm(years, 0)).toBeCloseTo(m, 4);
+    expect(heightForAgeShorterCm(years, -3)).toBeCloseTo(m * (1 - 3 * s), 4);
+  });
+
+  it('meets the first year\'s length at a year (the same row, day 365), and is straight between whole years', () => {
+    expect(heightForAgeShorterCm(1, -3)).toBeCloseTo(lengthForAgeGirlsCm(365, -3)!, 9);
+    // Halfway between 5 y (94.85) and 6 y (115.1244, 0.04447: 99.77): 97.31.
+    expect(heightForAgeShorterCm(5.5, -3)).toBeCloseTo((109.0725 * (1 - 3 * 0.04346) + 115.1244 * (1 - 3 * 0.04447)) / 2, 6);
+  });
+
+  it('is null under a year, over 19 years and for a non-finite input', () => {
+    expect([heightForAgeShorterCm(0.99, -3), heightForAgeShorterCm(19.01, -3), heightForAgeShorterCm(Number.NaN, -3), heightForAgeShorterCm(5, Number.POSITIVE_INFINITY)]).toEqual([null, null, null, null]);
+  });
+
+  it('cites both references, read in their reproductions', () => {
+    expect(SOURCES['who-height-for-age-2006-years']).toMatch(/read in its reproduction/);
+    expect(SOURCES['who-height-for-age-2007']).toMatch(/Bull World Health Organ 2007;85:660–667.*read in its reproduction.*anthroplus/);
   });
 });

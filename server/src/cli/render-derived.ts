@@ -1,7 +1,7 @@
 /** Derived values, the change since the previous arterial gas, missing inputs and interpretations under a timepoint. */
 import { changeUsesCarried, gasChangeText, type GasChange } from '../core/gas-change';
 import type { Timepoint } from '../core/analysis/model';
-import { isGasPressureValue, type TimepointDerivation } from '../core/derive/model';
+import { besideCaveat, isGasPressureValue, type TimepointDerivation } from '../core/derive/model';
 import { derivedDef, withheldByReason } from '../core/derive/registry';
 import { hbSourceOf } from '../core/derive/oxygen-transport';
 import { showsKpa } from '../core/present';
@@ -35,7 +35,7 @@ export function renderDerived(tp: Timepoint, d: TimepointDerivation | undefined,
       const estimateMark = v.estimate && !/\best\b/.test(v.short);
       if (estimateMark) legend.mark('estimate');
       if (v.usesCarried) legend.mark('carried');
-      const marks = `${estimateMark ? ' est.' : ''}${v.usesCarried ? '*' : ''}${v.caveat !== null ? ` (${v.caveat})` : ''}`;
+      const marks = besideCaveat(`${estimateMark ? ' est.' : ''}${v.usesCarried ? '*' : ''}`, v);
       if (isGasPressureValue(v) && kpa) {
         return `${v.short} ${p.bold(kpaText(v))} kPa (${number} mmHg)${marks}`;
       }

@@ -6,7 +6,7 @@ import { parseNote } from '../syntax/parser';
 import type { NoteTree } from '../syntax/tree';
 import { derivationOf, deriveTimepoint } from '../derive/registry';
 import type { TimepointDerivation } from '../derive/model';
-import { highFlowHoursAt } from '../derive/high-flow';
+import { HighFlowRuns } from '../derive/high-flow';
 import { buildTimeline, type Timeline } from './timeline';
 
 export interface NoteAnalysis {
@@ -27,11 +27,15 @@ export function analyseTree(tree: NoteTree, settings: Settings): NoteAnalysis {
   return { tree, timeline, derivation: deriverFor(timeline, settings) };
 }
 
-/** `NoteAnalysis.derivation` for a timeline. */
+/**
+ * `NoteAnalysis.derivation` for a timeline. The hours of high flow (`HighFlowRuns`) are worked out
+ * for the whole timeline once, the first time a value reads them, and kept with this analysis.
+ */
 export function deriverFor(timeline: Timeline, settings: Settings): (index: number) => TimepointDerivation {
+  let runs: HighFlowRuns | null = null;
   return (index) => {
     const tp = timeline.timepoints[index];
-    return tp ? deriveTimepoint(tp, settings, () => highFlowHoursAt(timeline.timepoints, index)) : derivationOf(index);
+    return tp ? deriveTimepoint(tp, settings, () => (runs ??= new HighFlowRuns(timeline.timepoints)).at(index)) : derivationOf(index);
   };
 }
 

@@ -6,7 +6,7 @@
 import { fieldById, type Bounds, type FieldDef } from '../fields/registry';
 import { convert, unitById, type UnitDef } from '../fields/units';
 import { ADULT_FROM_YEARS } from '../physiology/adults';
-import { lengthForAgeGirlsCm, PRETERM_GIRL_LENGTH_MINUS_3SD_CM } from '../physiology/growth';
+import { heightForAgeShorterCm, lengthForAgeGirlsCm, PRETERM_GIRL_LENGTH_MINUS_3SD_CM } from '../physiology/growth';
 import { halfLastDigit } from '../util/format';
 
 export const LOW_PRESSURE_WAIVER_MMHG = 500;
@@ -72,51 +72,70 @@ function childSizeBounds(id: string): Bounds {
 const CHILD_HEIGHT = childSizeBounds('height');
 const CHILD_WEIGHT = childSizeBounds('weight');
 
-/** Under this age (years) a height is an infant's length, from `infantLengthMinCm`. */
-export const INFANT_UNTIL_YEARS = 1;
-
 /**
- * How many weeks before term (40 weeks) an infant's length allows for: a birth at 24 weeks of
+ * How many weeks before term (40 weeks) a child's height allows for: a birth at 24 weeks of
  * gestation, the earliest of the very preterm reference read (`intergrowth-very-preterm-2016` in
- * physiology/growth.ts). An infant's age is corrected by it before its length is judged.
+ * physiology/growth.ts). A child's age is corrected by it before the height is judged, at every
+ * age: common practice corrects until about 2 years (from memory), but kept on, the floor is
+ * continuous at a year and lower (more lenient) after it, by less than the growth of 16 weeks.
  */
 export const EARLIEST_BIRTH_WEEKS_BEFORE_TERM = 16;
 
-/** How far below the girls' −3 SD at the corrected age an infant's length floor lies, cm: our margin, no source. */
-export const INFANT_LENGTH_MARGIN_CM = 10;
+/** How far below the −3 SD of the shorter sex at the corrected age a child's height floor lies, cm: our margin, no source. */
+export const CHILD_HEIGHT_MARGIN_CM = 10;
 
 const DAYS_PER_YEAR = 365.25;
 
+/** The last day of age (corrected) read on the first year's rows (`lengthForAgeGirlsCm`); after it the rows of whole years. */
+const FIRST_YEAR_LAST_DAY = 365;
+
 /**
- * The shortest usual length (cm) of an infant of `ageYears` (under INFANT_UNTIL_YEARS), in whole cm
+ * The shortest usual height (cm) of a child of `ageYears` (under ADULT_FROM_YEARS), in whole cm
  * rounded down: until EARLIEST_BIRTH_WEEKS_BEFORE_TERM weeks after birth, the −3 SD length of a
  * girl born at 24 weeks (24.0 cm, INTERGROWTH-21st); from then on the larger of that and the
- * girls' −3 SD length-for-age (WHO Child Growth Standards 2006) at the age so corrected, less
- * INFANT_LENGTH_MARGIN_CM. Girls are the shorter sex, the correction takes the earliest birth, and
- * the margin is some 6 SD more, so that no real infant's length is below it: 24 cm at birth, 33 cm
- * at 16 weeks, 46 cm at 8 months, 49 cm at 10 months. An infant's length below it is no length at
- * all for a bare number (an 8-month-old's `height 10` is not offered inches, 25 cm), and a length
- * written in cm below it is unusual (PN302). It was 30 cm at every age under a year (from memory),
- * which flagged a real preterm newborn and passed a 10-month-old of 31 cm.
+ * −3 SD at the age so corrected, less CHILD_HEIGHT_MARGIN_CM: in the first year of corrected age her
+ * length-for-age (WHO Child Growth Standards 2006, monthly rows), after it the height-for-age by
+ * whole year of the sex shorter there, straight between them (`heightForAgeShorterCm`: the 2006
+ * standards to 4 years, the WHO 2007 reference from 5 to 19, the boys' at 10 to 13), which starts
+ * on the first year's last row, so the floor does not drop there. The shorter sex, the earliest
+ * birth and a margin of some 1.5 to 6 SD more, so that no real child's height is below it short of
+ * a disorder of growth: 24 cm at birth, 33 cm at 16 weeks, 46 cm at 8 months, 52 cm at a year, 63
+ * cm at 2 years, 83 cm at 5, 107 cm at 10, 116 cm at 12, 132 cm at 17. A height below it is unusual
+ * (PN302, with a word on disorders of growth), and under INFANT_UNTIL_YEARS no height at all for a
+ * bare number (an 8-month-old's `height 10` is not offered inches, 25 cm). It was 30 cm at every
+ * age under a year (from memory), which flagged a real preterm newborn and passed a 10-month-old
+ * of 31 cm; and from a year on there was none short of the field's hard minimum (20 cm), which
+ * passed a 3-year-old of 45 cm.
  */
-export function infantLengthMinCm(ageYears: number): number {
+export function childHeightMinCm(ageYears: number): number {
   const correctedDays = ageYears * DAYS_PER_YEAR - EARLIEST_BIRTH_WEEKS_BEFORE_TERM * 7;
-  const line = correctedDays >= 0 ? lengthForAgeGirlsCm(correctedDays, -3) : null;
+  const line = correctedDays < 0 ? null
+    : correctedDays <= FIRST_YEAR_LAST_DAY ? lengthForAgeGirlsCm(correctedDays, -3)
+    : heightForAgeShorterCm(Math.max(1, correctedDays / DAYS_PER_YEAR), -3);
   const newborn = Math.floor(PRETERM_GIRL_LENGTH_MINUS_3SD_CM);
-  return line === null ? newborn : Math.max(newborn, Math.floor(line - INFANT_LENGTH_MARGIN_CM));
+  return line === null ? newborn : Math.max(newborn, Math.floor(line - CHILD_HEIGHT_MARGIN_CM));
 }
 
-/** An infant's length window: from `infantLengthMinCm` to a child's usual maximum. */
+/** An infant's height window: from `childHeightMinCm` to a child's usual maximum. */
 function infantHeight(ageYears: number): Bounds {
-  return { min: infantLengthMinCm(ageYears), max: CHILD_HEIGHT.max };
+  return { min: childHeightMinCm(ageYears), max: CHILD_HEIGHT.max };
 }
+
+/**
+ * Under this age (years) a bare height below the floor of the age (`childHeightMinCm`) is no height
+ * at all (`childSizeAt`). From it on a bare number is read in cm down to the field's hard minimum,
+ * as before the floor went on past a year: a disorder of growth can make a child's height real far
+ * below the −3 SD (common practice, no source), so no height a child could measure is called
+ * impossible or read in another unit; below the floor it is unusual (PN302, `childUsualBounds`).
+ */
+export const INFANT_UNTIL_YEARS = 1;
 
 /**
  * The size window of a body size of a patient of `ageYears` (null: none in force): under
  * ADULT_FROM_YEARS a child's (`childSizeBounds`), and for a height under INFANT_UNTIL_YEARS an
- * infant's, from `infantLengthMinCm`; null for an adult, for no age, and for any other field. It
- * is both the doubt window of a bare number (`doubtBoundsAt`) and where another unit would make the
- * number ordinary (`ordinaryBoundsAt`).
+ * infant's, from the floor of the age (`childHeightMinCm`); null for an adult, for no age, and for
+ * any other field. It is both the doubt window of a bare number (`doubtBoundsAt`) and where another
+ * unit would make the number ordinary (`ordinaryBoundsAt`).
  */
 export function childSizeAt(field: FieldDef, ageYears: number | null): Bounds | null {
   if (!isChildAge(ageYears) || !isBodySize(field)) return null;
@@ -156,15 +175,16 @@ function childWindowAt(field: FieldDef, ageYears: number | null): Bounds | null 
 /**
  * The usual bounds of a field for a patient under ADULT_FROM_YEARS, from `usual`, the bounds an
  * adult's value is read against (PN302), for a patient of `ageYears`: a body size keeps only its
- * usual maximum, with an infant's length from `infantLengthMinCm`, the inspiratory flow a child's minimum (CHILD_INSP_FLOW_MIN_L_PER_MIN), and a tidal volume read
+ * usual maximum, with a child's height from `childHeightMinCm`, the inspiratory flow a child's minimum (CHILD_INSP_FLOW_MIN_L_PER_MIN), and a tidal volume read
  * against no body size (`bodyKg` null: neither a weight nor a predicted body weight in force) has no
  * usual minimum, as a child's size runs from a preterm newborn's to an adult's (common practice,
  * no source); with a body size its minimum is per kg for a child as for an adult (`softBoundsAt`).
  */
 export function childUsualBounds(field: FieldDef, usual: Bounds | undefined, bodyKg: number | null, ageYears: number): Bounds | undefined {
-  // A child's height and weight have no usual minimum (an adult's, 120 cm and 25 kg, is none of a
-  // child's; common practice, no source), but an infant's length starts at `infantLengthMinCm`.
-  if (isBodySize(field)) return keepingMax(usual, field.id === 'height' && ageYears < INFANT_UNTIL_YEARS ? infantLengthMinCm(ageYears) : undefined);
+  // A child's weight has no usual minimum (an adult's, 25 kg, is none of a child's; common practice,
+  // no source), and a child's height starts at the floor of the age (`childHeightMinCm`), not at an
+  // adult's 120 cm.
+  if (isBodySize(field)) return keepingMax(usual, field.id === 'height' ? childHeightMinCm(ageYears) : undefined);
   if (usual === undefined) return usual;
   if (field.id === 'insp_flow') return keepingMax(usual, CHILD_INSP_FLOW_MIN_L_PER_MIN);
   if (field.id === 'vt' && (bodyKg === null || !(bodyKg > 0)) && usual.min !== undefined) return keepingMax(usual, undefined);
@@ -176,7 +196,7 @@ export function childUsualBounds(field: FieldDef, usual: Bounds | undefined, bod
  * field's doubt window, else its soft bounds, with the same waiver at low barometric pressure; for
  * a body size of a patient under ADULT_FROM_YEARS (`ageYears`, the age in force where the number
  * is read; null: none), a child's window (`childWindowAt`: a child's size, an infant's length from
- * `infantLengthMinCm`, a child's inspiratory flow).
+ * `childHeightMinCm`, a child's inspiratory flow).
  */
 export function doubtBoundsAt(field: FieldDef, barometricMmhg: number | null, ageYears: number | null = null): Bounds | undefined {
   const child = childWindowAt(field, ageYears);

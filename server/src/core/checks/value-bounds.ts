@@ -62,8 +62,8 @@ function usualBounds(field: FieldDef, barometricMmhg: number | null, at: Timepoi
 /**
  * The age in force (years; the header's at note scope; null: none), as the timeline read the lines
  * with it (`Timepoint.ageYears`, `Timeline.headerAgeYears`): under ADULT_FROM_YEARS the usual
- * minimum of height and weight, an adult's (120 cm, 25 kg), is not applied, and under a year a
- * height's is an infant's; the inspiratory flow's is a child's, and a tidal volume with no body size
+ * minimum of height and weight, an adult's (120 cm, 25 kg), is not applied, and a height's is the
+ * floor of the age (`childHeightMinCm`); the inspiratory flow's is a child's, and a tidal volume with no body size
  * in force has none (`childUsualBounds`); the usual maximum still is.
  */
 function ageAt(ctx: CheckContext, at: TimepointContext | null): number | null {
@@ -220,7 +220,7 @@ export const impossibleValue = defineCheck({
     example: 'abg ph 8.4',
     fix: 'Check the transcription and the unit. Where the number is ordinary in the field\'s other unit (`temp 98.6 C`, `pco2 56 kPa`), a quick fix writes that unit; a unit in which it would be possible but unusual is not offered (`altitude 25000 m`: 25,000 ft is 7,620 m, above the usual 5,100 m). The bounds of each field and their sources are listed in grammar/README.md.',
   },
-  source: 'field registry bounds; each field names its source (mostly common practice, no source); an infant\'s length against the WHO Child Growth Standards 2006 and INTERGROWTH-21st very preterm size at birth 2016 (read in their reproductions, physiology/growth.ts)',
+  source: 'field registry bounds; each field names its source (mostly common practice, no source); a child\'s height against the WHO Child Growth Standards 2006, the WHO growth reference for school-aged children and adolescents 2007 and INTERGROWTH-21st very preterm size at birth 2016 (read in their reproductions, physiology/growth.ts)',
   ...valueCheck((ctx, stated, barometricMmhg, at) => {
     const field = stated.field;
     // Most values are within bounds: asked first, the rest only of the few that are not.
@@ -262,17 +262,18 @@ export const unusualValue = defineCheck({
   severity: 'warning',
   tags: ['plausibility'],
   doc: {
-    fires: 'A value is possible but outside the usual (soft) bounds of its field: worth a second look at the unit or the transcription. Low arterial gas pressures are not flagged where the barometric pressure is below 500 mmHg, since they are real at extreme altitude. A tidal volume is usual from 2 mL per kg of body size (the smaller of the weight and the predicted body weight in force), or from 50 mL where the note gives neither; in HFOV, which moves 1–3 mL/kg a breath, it has no usual minimum. In HFOV the set rate is the oscillation frequency, usual from 3 to 15 Hz (180–900 /min) rather than at most 60 /min: a number written bare or in /min that is such a frequency in Hz (`rate 5`) is reported with `Hz` offered; a rate written in Hz in another mode is reported where it is above 60 /min (1 Hz), with its usual maximum in both units and a word that Hz is usual in HFOV, and /min offered where the number is a whole one usual in /min (`rate 14 Hz` in VC; not `rate 1.004 Hz`, a frequency, as rates of breaths are set in whole breaths a minute). A number written in another unit than its field\'s own is compared at the precision written: `pco2 20.0 kPa` is 150.01 mmHg, yet to a tenth of a kPa it is the usual maximum of 150 mmHg, and is not reported. A saturation written as a fraction with no unit (`spo2 0.94`) is reported with the percentage offered, and is not used until it is rewritten. The usual minimum of height and weight is an adult\'s: it is not applied to a patient under 18 years (the age in force), whose usual maximum still is; for such a patient the inspiratory flow is usual from 2 L/min (an infant is given 4–10 L/min) rather than from an adult\'s 10 L/min, and a tidal volume has no usual minimum where the note gives no body size; under a year a length is usual from a floor that rises with age, far below the shortest real infant\'s: 24 cm until 16 weeks after birth (a girl born at 24 weeks is 24.0 cm at −3 SD, INTERGROWTH-21st), then the girls\' −3 SD length-for-age of the WHO Child Growth Standards at the age corrected for a birth 16 weeks early, less 10 cm (46 cm at 8 months, 49 cm at 10 months).',
+    fires: 'A value is possible but outside the usual (soft) bounds of its field: worth a second look at the unit or the transcription. Low arterial gas pressures are not flagged where the barometric pressure is below 500 mmHg, since they are real at extreme altitude. A tidal volume is usual from 2 mL per kg of body size (the smaller of the weight and the predicted body weight in force), or from 50 mL where the note gives neither; in HFOV, which moves 1–3 mL/kg a breath, it has no usual minimum. In HFOV the set rate is the oscillation frequency, usual from 3 to 15 Hz (180–900 /min) rather than at most 60 /min: a number written bare or in /min that is such a frequency in Hz (`rate 5`) is reported with `Hz` offered; a rate written in Hz in another mode is reported where it is above 60 /min (1 Hz), with its usual maximum in both units and a word that Hz is usual in HFOV, and /min offered where the number is a whole one usual in /min (`rate 14 Hz` in VC; not `rate 1.004 Hz`, a frequency, as rates of breaths are set in whole breaths a minute). A number written in another unit than its field\'s own is compared at the precision written: `pco2 20.0 kPa` is 150.01 mmHg, yet to a tenth of a kPa it is the usual maximum of 150 mmHg, and is not reported. A saturation written as a fraction with no unit (`spo2 0.94`) is reported with the percentage offered, and is not used until it is rewritten. The usual minimum of height and weight is an adult\'s: it is not applied to a patient under 18 years (the age in force), whose usual maximum still is; for such a patient the inspiratory flow is usual from 2 L/min (an infant is given 4–10 L/min) rather than from an adult\'s 10 L/min, and a tidal volume has no usual minimum where the note gives no body size; a height is usual from a floor that rises with age, far below the shortest real child\'s: 24 cm until 16 weeks after birth (a girl born at 24 weeks is 24.0 cm at −3 SD, INTERGROWTH-21st), then the −3 SD of the shorter sex at the age corrected for a birth 16 weeks early, less 10 cm: in the first year the girls\' length-for-age in the WHO Child Growth Standards (46 cm at 8 months, 49 cm at 10 months, 52 cm at a year), after it the height-for-age by whole year, straight between them, in those standards to 4 years and in the WHO 2007 reference from 5, the girls\' but the boys\' at 10 to 13 years (63 cm at 2 years, 83 cm at 5, 107 cm at 10, 116 cm at 12, 132 cm at 17). A child\'s height below it is reported with a word that a disorder of growth can make it real; from a year on a bare height below it is still read in cm.',
     example: 'vitals hr 236',
     fix: 'Confirm the value; if it is right, the warning can stay (or the check can be switched off in settings). Where the number is usual in the field\'s other unit (`vt 0.45 mL`, meant as L), a quick fix writes that unit.',
   },
-  source: 'field registry bounds; each field names its source (mostly common practice, no source); an infant\'s length against the WHO Child Growth Standards 2006 and INTERGROWTH-21st very preterm size at birth 2016 (read in their reproductions, physiology/growth.ts)',
+  source: 'field registry bounds; each field names its source (mostly common practice, no source); a child\'s height against the WHO Child Growth Standards 2006, the WHO growth reference for school-aged children and adolescents 2007 and INTERGROWTH-21st very preterm size at birth 2016 (read in their reproductions, physiology/growth.ts)',
   ...valueCheck((ctx, stated, barometricMmhg, at) => {
     const field = stated.field;
     // Most values are within the usual bounds, which a low barometric pressure only widens: asked
-    // first. A tidal volume's usual minimum follows the body size, which may raise it, and a set
-    // rate's the mode (HFOV): asked on.
-    if (!field.soft || (!outOfBounds(stated, field.soft) && field.id !== 'vt' && field.id !== 'vent_rate')) return;
+    // first. A tidal volume's usual minimum follows the body size, which may raise it, a set rate's
+    // the mode (HFOV), and a height's the age (`childHeightMinCm`: 132 cm at 17 years, above an
+    // adult's 120): asked on.
+    if (!field.soft || (!outOfBounds(stated, field.soft) && field.id !== 'vt' && field.id !== 'vent_rate' && field.id !== 'height')) return;
     if (stated.value !== null && stated.item.number !== null && isSaturationFraction(field, stated.item.number, stated.item)) {
       const written = stated.item.value!;
       const percent = formatNumber(stated.item.number * 100, Math.max(0, writtenDecimals(written.text) - 2));
@@ -287,7 +288,8 @@ export const unusualValue = defineCheck({
     // A tidal volume per kg of PBW has bounds of its own (PN325).
     if (OWN_CHECKS.has(field.id) || !stated.usable || stated.readUnit === null || stated.readUnit === PER_KG_PBW || stated.unitDoubt) return;
     if (field.hard && outOfBounds(stated, field.hard)) return;
-    const soft = usualBounds(field, barometricMmhg, at, ageAt(ctx, at));
+    const ageYears = ageAt(ctx, at);
+    const soft = usualBounds(field, barometricMmhg, at, ageYears);
     // A number written in another unit is compared at the precision written: 20.0 kPa is PaCO2's usual 150 mmHg.
     if (!outOfBounds(stated, soft) || (stated.value !== null && withinAsWritten(stated.value, soft, field, stated.readUnit, stated.item.number === null ? null : stated.item.value?.text ?? null))) return;
     // A unit written in which the number is usual (`vt 0.45 mL`, meant as L) is offered, not preferred:
@@ -301,11 +303,21 @@ export const unusualValue = defineCheck({
       range: toRange(stated.line, stated.item.value?.span ?? stated.item.span),
       // pH has no unit to check.
       // A rate in Hz outside HFOV has its usual bound in /min too, the unit such a rate is set in.
-      message: `${asWritten(field, stated)} is unusual (usually ${describe(soft ?? {}, field, stated, hint !== null && hint.fix === null)}): check ${unitSuffix(field, stated) ? 'the unit and ' : ''}the transcription.${hint?.text ?? ''}${otherText}`,
+      message: `${asWritten(field, stated)} is unusual (usually ${describe(soft ?? {}, field, stated, hint !== null && hint.fix === null)}): check ${unitSuffix(field, stated) ? 'the unit and ' : ''}the transcription.${hint?.text ?? ''}${otherText}${shortForAge(stated, soft, ageYears)}`,
       ...(other ? { fixes: [other.fix] } : {}),
     });
   }),
 });
+
+/**
+ * For a child's height below the floor of the age (`childHeightMinCm`, far below the shortest
+ * girls of that age in the WHO references): that a disorder of growth can make it real, so that
+ * the finding asks for a check, not a correction. Empty for anything else.
+ */
+function shortForAge(stated: StatedValue, usual: Bounds | undefined, ageYears: number | null): string {
+  if (stated.fieldId !== 'height' || !isChildAge(ageYears) || usual?.min === undefined || stated.value === null || stated.value >= usual.min) return '';
+  return ' A disorder of growth can make so short a height real at this age.';
+}
 
 export const saturationAbove100 = defineCheck({
   code: 'PN306',

@@ -4,6 +4,7 @@
  * through its context (`DeriveContext.highFlowHours`).
  */
 import type { Timepoint } from '../analysis/model';
+import { deviceInForce } from '../analysis/noninvasive-support';
 import { ROX_FAILURE_BELOW, ROX_HOUR_WINDOW_H, ROX_SUCCESS_FROM, roxSideAt, roxThresholdHour } from '../physiology';
 import { formatNumber, formatShort } from '../util/format';
 
@@ -19,10 +20,13 @@ const HIGH_FLOW = 'hfnc';
 /** No run is looked back further than this (minutes): beyond the last hour a threshold is read at, only "at least" matters. */
 const LOOK_BACK_MINUTES = (12 + ROX_HOUR_WINDOW_H) * 60;
 
-/** Whether high-flow nasal oxygen is the usable device in force at a timepoint (stated there or carried). */
-function onHighFlow(tp: Timepoint): boolean {
-  const device = tp.values.get('device');
-  return device !== undefined && device.stated.usable && device.stated.word === HIGH_FLOW;
+/**
+ * Whether high-flow nasal oxygen is the device in force at a timepoint (stated there, carried, or
+ * kept by a later oxygen line that names no device): read through `deviceInForce`, the one reading
+ * of the device the rest of the core asks (a device word is usable exactly when it is read).
+ */
+export function onHighFlow(tp: Timepoint): boolean {
+  return deviceInForce(tp.values) === HIGH_FLOW;
 }
 
 /**
@@ -31,22 +35,91 @@ function onHighFlow(tp: Timepoint): boolean {
  * device or room air ends a run, high flow named again continues it) to this timepoint's time.
  * Null where high flow is not in force here, where either time is unknown, or where the start's
  * time is after this one's. A run in force from the note's first timepoint may have begun before
- * the note: its hours are "at least" (`atLeast`), as are those of a run longer than the look-back.
+ * the note: its hours are "at least" (`atLeast`), as are those of a run longer than the look-back
+ * (from the latest earlier timepoint of the run that is more than LOOK_BACK_MINUTES before this one).
+ *
+ * For one timepoint: it goes over the timeline once. An analysis keeps one `HighFlowRuns` and asks
+ * it (`deriverFor` in analysis/analyse.ts).
  */
 export function highFlowHoursAt(timepoints: readonly Timepoint[], index: number): HighFlowHours | null {
-  const tp = timepoints[index];
-  if (tp === undefined || !onHighFlow(tp)) return null;
-  const now = tp.time.minutes;
-  if (now === null) return null;
-  let start = index;
-  while (start > 0 && onHighFlow(timepoints[start - 1]!)) {
-    start--;
-    const at = timepoints[start]!.time.minutes;
-    if (at !== null && at <= now && now - at > LOOK_BACK_MINUTES) return { hours: (now - at) / 60, atLeast: true };
+  return new HighFlowRuns(timepoints).at(index);
+}
+
+/**
+ * The hours of high flow of every timepoint of a timeline (`highFlowHoursAt`), worked out in one
+ * pass when made: where each run begins is known as the pass reaches it, not walked back to from
+ * each timepoint a ROX index is read at (which made a long run of high flow quadratic in its
+ * timepoints). The look-back keeps, for the run so far, the timepoints with a time that no later
+ * one of the run undercuts (their times rise with their order); the latest of them more than
+ * LOOK_BACK_MINUTES before a timepoint is found by halving, so the pass is n log n at worst and
+ * about linear where the times rise. Kept per analysis: hours in one typed array (NaN: none) and
+ * the "at least" marks in another, an answer made when asked.
+ */
+export class HighFlowRuns {
+  private readonly hours: Float64Array;
+  private readonly atLeast: Uint8Array;
+
+  constructor(timepoints: readonly Timepoint[]) {
+    const n = timepoints.length;
+    const hours = new Float64Array(n).fill(Number.NaN);
+    const atLeast = new Uint8Array(n);
+    // The run so far: its first timepoint, and the rising times of the look-back (indexes in `rising`).
+    const rising = new Int32Array(n);
+    let top = 0;
+    let start = -1;
+    let previousOn = false;
+    for (let i = 0; i < n; i++) {
+      const tp = timepoints[i]!;
+      if (!onHighFlow(tp)) {
+        previousOn = false;
+        continue;
+      }
+      if (!previousOn) {
+        start = i;
+        top = 0;
+      }
+      previousOn = true;
+      const now = tp.time.minutes;
+      if (now === null) continue;
+      // The latest earlier timepoint of the run more than the look-back before now: among the rising
+      // times, those that are form a prefix, and its last is the latest of all that are.
+      let low = 0;
+      let high = top;
+      while (low < high) {
+        const mid = (low + high) >>> 1;
+        if (beyondLookBack(timepoints[rising[mid]!]!.time.minutes!, now)) low = mid + 1;
+        else high = mid;
+      }
+      if (low > 0) {
+        hours[i] = (now - timepoints[rising[low - 1]!]!.time.minutes!) / 60;
+        atLeast[i] = 1;
+      } else {
+        const from = timepoints[start]!.time.minutes;
+        if (from !== null && from <= now) {
+          hours[i] = (now - from) / 60;
+          atLeast[i] = start === 0 ? 1 : 0;
+        }
+      }
+      // This timepoint joins the look-back of the later ones: an earlier one at the same time or
+      // later is never the latest that is beyond it.
+      while (top > 0 && timepoints[rising[top - 1]!]!.time.minutes! >= now) top--;
+      rising[top++] = i;
+    }
+    this.hours = hours;
+    this.atLeast = atLeast;
   }
-  const from = timepoints[start]!.time.minutes;
-  if (from === null || from > now) return null;
-  return { hours: (now - from) / 60, atLeast: start === 0 };
+
+  /** The hours of high flow at timepoint `index`; null where there are none (see `highFlowHoursAt`). */
+  at(index: number): HighFlowHours | null {
+    const hours = this.hours[index];
+    if (hours === undefined || Number.isNaN(hours)) return null;
+    return { hours, atLeast: this.atLeast[index] === 1 };
+  }
+}
+
+/** Whether an earlier time of a run (minutes) is more than the look-back before `now`. */
+function beyondLookBack(at: number, now: number): boolean {
+  return at <= now && now - at > LOOK_BACK_MINUTES;
 }
 
 /** What a ROX index adds beside its number when read against the thresholds of its hour of high flow. */

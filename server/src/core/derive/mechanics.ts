@@ -3,6 +3,7 @@ import {
   DRIVING_PRESSURE_FLAG_CMH2O,
   LUNG_PROTECTIVE_VT_MAX_ML_PER_KG,
   MECHANICAL_POWER_MODE,
+  PBW_REFERENCE_HEIGHT_CM,
   SOURCES,
   airwayResistance,
   complianceDynamic,
@@ -72,6 +73,30 @@ function withoutPbw(c: DeriveContext): Outcome | null {
   return r !== null && 'reason' in r && !('value' in r) ? { kind: 'na', reason: `no predicted body weight: ${r.reason}`, explained: true } : null;
 }
 
+/**
+ * What a predicted body weight from a height below PBW_REFERENCE_HEIGHT_CM (152.4 cm, the
+ * equations' base: 60 inches) carries, and every value computed from it: the equation was not
+ * validated there (ARDS Network 2000, whose line goes below its base weight), said in full in a
+ * note (hover, JSON) and in a few words beside the number where it is shown alone (`show`, the
+ * inlay hint of VT/PBW).
+ */
+const SHORT_FOR_PBW: ValueExtras = Object.freeze({
+  notes: Object.freeze(['below 152.4 cm the equation was not validated (short adults)']),
+  caveat: 'height < 152.4 cm',
+});
+
+/** Whether the predicted body weight worked out at this timepoint is from a height below 152.4 cm (`SHORT_FOR_PBW`). */
+function pbwOfShortHeight(c: DeriveContext): boolean {
+  const r = c.evaluate('predicted_body_weight');
+  return r !== null && 'caveat' in r && r.caveat === SHORT_FOR_PBW.caveat;
+}
+
+/** `extras` with the note and the caveat of a PBW from a height below 152.4 cm where `short`. */
+function withShortPbw(extras: ValueExtras, short: boolean): ValueExtras {
+  if (!short) return extras;
+  return { ...extras, notes: [...(extras.notes ?? []), ...SHORT_FOR_PBW.notes!], caveat: SHORT_FOR_PBW.caveat };
+}
+
 export const pbw = defineDerived({
   id: 'predicted_body_weight',
   label: 'Predicted body weight',
@@ -95,8 +120,7 @@ export const pbw = defineDerived({
     // Far below 152.4 cm the line reaches 0 kg (about 102 cm for a woman): no weight, rather than "add PBW".
     if (weight === null) return { kind: 'na', reason: `the ARDS Network equation gives no weight for a height of ${formatShort(height.value, 0)} cm`, explained: true };
     const base = { name: 'base', value: male ? 50 : 45.5, unit: 'kg', decimals: 1, origin: sex.input.origin, note: male ? 'male' : 'female' };
-    const notes = height.value < 152.4 ? ['below 152.4 cm the equation was not validated (short adults)'] : [];
-    return c.value(weight, [base, height], { notes });
+    return c.value(weight, [base, height], height.value < PBW_REFERENCE_HEIGHT_CM ? SHORT_FOR_PBW : undefined);
   },
 });
 
@@ -123,7 +147,7 @@ export const vtPerKg = defineDerived({
     const decimals = perKg === null ? undefined : decimalsAgainst(perKg, 1, LUNG_PROTECTIVE_VT_MAX_ML_PER_KG);
     // In HFOV the volume is an oscillation's, far below a conventional breath's: the quotient holds,
     // the lung-protective range of conventional breaths does not apply (nor does PN403).
-    return c.value(perKg, [vt, p], { notes: c.oscillationBreath() ? OSCILLATION_VOLUME_NOTES : LUNG_PROTECTIVE_NOTES, decimals });
+    return c.value(perKg, [vt, p], withShortPbw({ notes: c.oscillationBreath() ? OSCILLATION_VOLUME_NOTES : LUNG_PROTECTIVE_NOTES, decimals }, pbwOfShortHeight(c)));
   },
 });
 
@@ -369,6 +393,6 @@ export const ventilatoryRatioDef = defineDerived({
       if (none) return none;
     }
     if (!ve || !paco2 || !p) return c.missing([ve, c.lacking('minute_ventilation')], [paco2, c.needFor('paco2', 'pco2')], [p, c.lacking('predicted_body_weight')]);
-    return c.value(ventilatoryRatio(ve.value * 1000, paco2.value, p.value), [ve, paco2, p]);
+    return c.value(ventilatoryRatio(ve.value * 1000, paco2.value, p.value), [ve, paco2, p], withShortPbw({}, pbwOfShortHeight(c)));
   },
 });

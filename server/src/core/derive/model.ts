@@ -65,6 +65,15 @@ export interface DerivedValue {
   readonly line: number | null;
 }
 
+/**
+ * `text` with the value's caveat after it in parentheses (`S/F 248 (SpO2 > 97 %)`), or `text` as it
+ * is where the value has none: the one way a caveat is written beside a value shown on its own
+ * (`pneumark show`, the inlay hints). An empty `text` gives the caveat alone, after a blank.
+ */
+export function besideCaveat(text: string, value: { readonly caveat: string | null }): string {
+  return value.caveat === null ? text : `${text} (${value.caveat})`;
+}
+
 /** Derived values in mmHg that are no gas pressure (a blood pressure): never shown in kPa. */
 const NOT_GAS_PRESSURES: ReadonlySet<string> = new Set(['mean_arterial_pressure']);
 

@@ -223,7 +223,7 @@ export function derivationOf(timepoint: number, derived: readonly DerivedValue[]
   return { timepoint, derived, missing: NONE, notApplicable: NONE, interpretations: NONE };
 }
 
-/** `highFlowHours`: the hours of high flow at `tp`, asked only where a value reads them (the timeline knows them, `highFlowHoursAt`). */
+/** `highFlowHours`: the hours of high flow at `tp`, asked only where a value reads them (the timeline knows them: `HighFlowRuns`, worked out once per analysis). */
 export function deriveTimepoint(tp: Timepoint, settings: Settings, highFlowHours?: () => HighFlowHours | null): TimepointDerivation {
   return new TimepointValues(tp, settings, highFlowHours);
 }

@@ -2,7 +2,7 @@
  * The physiology layer: pure formulas, no I/O, no editor or LSP types.
  *
  * What lives here: one module per topic (atmosphere, gas exchange, acid–base, mechanics, oxygen
- * transport, units, infants' growth). Internal units are fixed (gas pressures mmHg, airway pressures cmH2O,
+ * transport, units, children's growth). Internal units are fixed (gas pressures mmHg, airway pressures cmH2O,
  * volumes mL, flows L/min, Hb g/dL, electrolytes mmol/L, FiO2 a fraction, SpO2/SaO2 percent
  * unless a name says fraction). Every function is total: it returns `null`, never NaN or
  * ±Infinity, and never throws. Each module exports its own `SOURCES` (key → citation) and each

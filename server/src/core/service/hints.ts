@@ -15,7 +15,7 @@
  */
 import type { Timepoint } from '../analysis/model';
 import type { NoteResult } from '../check-note';
-import { isGasPressureValue, withheldText, type AcidBaseFinding, type DerivedValue, type Interpretation, type NotApplicable, type Term, type TimepointDerivation } from '../derive/model';
+import { besideCaveat, isGasPressureValue, withheldText, type AcidBaseFinding, type DerivedValue, type Interpretation, type NotApplicable, type Term, type TimepointDerivation } from '../derive/model';
 import type { AcidBaseDisorder, MetabolicAcidosisKind, RespiratoryChronicity } from '../physiology';
 import { kpaFirstCompact, kpaNumber } from '../present';
 import { formatNumber } from '../util/format';
@@ -196,7 +196,7 @@ export function inlayHints(result: NoteResult, lines: LineSpan, options: HintOpt
           const n = `${hintNumber(d, kpa, pick.unit === true || mmhgInKpaNote)}${d.usesCarried ? CARRIED_MARK : ''}`;
           const text = pick.text(n, d, all.filter((v) => v.line === d.line), kpa);
           if (!text) continue;
-          const label = d.caveat !== null ? `${text} (${d.caveat})` : text;
+          const label = besideCaveat(text, d);
           shown.add(`${line}:${d.id}`);
           add(line, category, { label, values: [d], withheld: NONE_WITHHELD, reading: null, derivation, timepoint: shownAt });
         }

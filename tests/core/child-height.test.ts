@@ -1,0 +1,153 @@
+// A child's height after the first year. Under a year a length has a floor that rises with age
+// (tests/core/infant-length.test.ts); after it there was none short of the field's hard minimum
+// (20 cm), so a 3-year-old of 45 cm passed. The floor now goes on through childhood in the same way
+// (`childHeightMinCm`): the −3 SD of the shorter sex at the age corrected for a birth 16 weeks
+// early (the earliest of INTERGROWTH-21st very preterm size at birth, 2016), less 10 cm (our margin,
+// no source), in whole cm rounded down, from the height-for-age by whole year, straight between them:
+// - 1 to 4 years: WHO Multicentre Growth Reference Study Group, WHO Child Growth Standards:
+//   length/height-for-age … methods and development, WHO 2006 (citation from memory); the girls' rows
+//   read in the WHO's package anthro (data-raw/growthstandards/lenanthro.txt, sex 2): day 365 M
+//   74.0049 S 0.03479 (length), day 731 M 85.7299 S 0.03764 (height), day 1096 M 95.0572 S 0.04007,
+//   day 1461 M 102.7312 S 0.04193;
+// - 5 to 19 years: de Onis M, Onyango AW, Borghi E, Siyam A, Nishida C, Siekmann J. Development of a
+//   WHO growth reference for school-aged children and adolescents. Bull World Health Organ
+//   2007;85:660–667 (citation from memory); the girls' rows read in the WHO's package anthroplus
+//   (data-raw/growthstandards/hfawho2007.txt), by month, girls (sex 2): month 60 M 109.0725 S
+//   0.04346, month 108 M 132.4944 S 0.04612, month 120 M 138.6363 S 0.04614, month 192 M 162.5156 S
+//   0.04176, month 204 M 162.8545 S 0.04109, month 216 M 163.0595 S 0.04053; boys (sex 1), shorter
+//   at −3 SD at 10 to 13 years (the girls' growth spurt comes earlier): month 120 M 137.7795 S
+//   0.04626, month 132 M 143.1126 S 0.04703, month 144 M 149.0807 S 0.04753, month 156 M 156.0426 S
+//   0.04760; month 108 M 132.5652 S 0.04535, month 168 M 163.1816 S 0.04714.
+// L is 1 on every row: −3 SD is M × (1 − 3S). From 18 years the adult's usual minimum (120 cm,
+// the field registry) applies instead. Invented patients.
+import { describe, expect, it } from 'vitest';
+import { checkNote } from '../../server/src/core';
+import { CHILD_HEIGHT_MARGIN_CM, childHeightMinCm, EARLIEST_BIRTH_WEEKS_BEFORE_TERM } from '../../server/src/core/analysis/bounds';
+import { heightForAgeShorterCm, lengthForAgeGirlsCm } from '../../server/src/core/physiology/growth';
+
+const findings = (text: string) => checkNote(text).findings.map((f) => `${f.code} ${f.range.start.line + 1}`);
+const messageOf = (text: string) => checkNote(text).findings[0]?.message ?? '';
+/** −3 SD of a row read: M × (1 − 3S). */
+const minus3 = (m: number, s: number) => m * (1 - 3 * s);
+/** Years of age corrected for a birth 16 weeks early. */
+const corrected = (years: number) => years - (EARLIEST_BIRTH_WEEKS_BEFORE_TERM * 7) / 365.25;
+
+describe('the floor of a child\'s height after the first year (`childHeightMinCm`)', () => {
+  it('at 1, 2, 5, 10 and 17 years, and at 18 years for the function (a patient of 18 is an adult)', () => {
+    // 1 y: corrected 253.25 days, on the first year's rows (WHO 2006, days 244 and 274): −3 SD 62.05 cm − 10 → 52.
+    expect(childHeightMinCm(1)).toBe(52);
+    // 2 y: corrected 1.693 y, between 1 y (74.0049, 0.03479: 66.28) and 2 y (85.7299, 0.03764: 76.05), WHO 2006: 73.05 − 10 → 63.
+    expect(childHeightMinCm(2)).toBe(63);
+    // 5 y: corrected 4.693 y, between 4 y (WHO 2006 day 1461: 102.7312, 0.04193: 89.81) and 5 y (WHO 2007 month 60: 109.0725, 0.04346: 94.85): 93.31 − 10 → 83.
+    expect(childHeightMinCm(5)).toBe(83);
+    // 10 y: corrected 9.693 y, between 9 y (WHO 2007 girls month 108: 132.4944, 0.04612: 114.16) and 10 y (boys month 120: 137.7795, 0.04626: 118.66): 117.28 − 10 → 107.
+    expect(childHeightMinCm(10)).toBe(107);
+    // 12 y: corrected 11.693 y, between the boys' 11 y (143.1126, 0.04703: 122.92) and 12 y (149.0807, 0.04753: 127.82): 126.32 − 10 → 116.
+    expect(childHeightMinCm(12)).toBe(116);
+    // 17 y: between 16 y (month 192: 162.5156, 0.04176: 142.16) and 17 y (month 204: 162.8545, 0.04109: 142.78): 142.59 − 10 → 132.
+    expect(childHeightMinCm(17)).toBe(132);
+    // 18 y: between 17 y and 18 y (month 216: 163.0595, 0.04053: 143.23): 143.09 − 10 → 133.
+    expect(childHeightMinCm(18)).toBe(133);
+  });
+
+  it('joins the first year\'s floor at a year without a drop, and rises or holds on every day to 18 years', () => {
+    // Just before a year, at a year and just after: 52 cm (the first year's rows, corrected age).
+    expect([childHeightMinCm(364 / 365.25), childHeightMinCm(1), childHeightMinCm(366 / 365.25)]).toEqual([52, 52, 52]);
+    let previous = childHeightMinCm(0);
+    for (let day = 1; day <= 18 * 365.25; day++) {
+      const floor = childHeightMinCm(day / 365.25);
+      expect([day, floor >= previous]).toEqual([day, true]);
+      previous = floor;
+    }
+  });
+
+  it('at the joins of the references: the corrected age of a year (the first year\'s last row is the first whole year\'s), of 2 years (height from length) and of 5 years (WHO 2007 from WHO 2006)', () => {
+    const at = (correctedYears: number) => childHeightMinCm(correctedYears + (EARLIEST_BIRTH_WEEKS_BEFORE_TERM * 7) / 365.25);
+    // Corrected 1 y: day 365 of the first year (74.0049, 0.03479): 66.28 − 10 → 56, on both tables.
+    expect(lengthForAgeGirlsCm(365, -3)).toBeCloseTo(heightForAgeShorterCm(1, -3)!, 9);
+    expect([at(0.999), at(1), at(1.001)]).toEqual([56, 56, 56]);
+    // Corrected 2 y: the height row (day 731: 85.7299, 0.03764: 76.05), below the length of day 730 (86.4008, 0.03733: 76.72).
+    expect(heightForAgeShorterCm(2, -3)).toBeCloseTo(minus3(85.7299, 0.03764), 6);
+    expect(heightForAgeShorterCm(2, -3)!).toBeLessThan(minus3(86.4008, 0.03733));
+    expect(at(2)).toBe(66);
+    // Corrected 5 y: WHO 2007 month 60 (109.0725, 0.04346: 94.85), below WHO 2006 day 1826 (109.4189, 0.04346: 95.15).
+    expect(heightForAgeShorterCm(5, -3)).toBeCloseTo(minus3(109.0725, 0.04346), 6);
+    expect(heightForAgeShorterCm(5, -3)!).toBeLessThan(minus3(109.4189, 0.04346));
+    expect([at(4.999), at(5), at(5.001)]).toEqual([84, 84, 84]);
+  });
+
+  it('takes the shorter sex at each whole year: the girls\' −3 SD but at 10 to 13 years the boys\' (WHO 2007 rows read)', () => {
+    // Girls 9 y 114.16 < boys 9 y (132.5652, 0.04535) 114.53; boys 10 y 118.66 < girls 10 y (138.6363, 0.04614) 119.45;
+    // boys 13 y (156.0426, 0.0476) 133.76 < girls 13 y (156.3748, 0.04439) 135.55; girls 14 y (159.789, 0.04345) 138.96 < boys 14 y (163.1816, 0.04714) 140.10.
+    expect(heightForAgeShorterCm(9, -3)).toBeCloseTo(minus3(132.4944, 0.04612), 6);
+    expect(heightForAgeShorterCm(9, -3)!).toBeLessThan(minus3(132.5652, 0.04535));
+    expect(heightForAgeShorterCm(10, -3)).toBeCloseTo(minus3(137.7795, 0.04626), 6);
+    expect(heightForAgeShorterCm(10, -3)!).toBeLessThan(minus3(138.6363, 0.04614));
+    expect(heightForAgeShorterCm(13, -3)).toBeCloseTo(minus3(156.0426, 0.0476), 6);
+    expect(heightForAgeShorterCm(13, -3)!).toBeLessThan(minus3(156.3748, 0.04439));
+    expect(heightForAgeShorterCm(14, -3)).toBeCloseTo(minus3(159.789, 0.04345), 6);
+    expect(heightForAgeShorterCm(14, -3)!).toBeLessThan(minus3(163.1816, 0.04714));
+  });
+
+  it('is never above the shorter sex\'s −3 SD less the margin at the child\'s own age (rows read, WHO 2006 and 2007)', () => {
+    // [age in years, M, S] as read: WHO 2006 girls days 500, 1000 and 1500 (height from day 731);
+    // WHO 2007 girls months 66, 186 and 216, boys months 126 (140.3948, 0.04667) and 150 (152.4425, 0.04763).
+    const rows: readonly (readonly [number, number, number])[] = [
+      [500 / 365.25, 79.0642, 0.03564], [1000 / 365.25, 92.8178, 0.03949], [1500 / 365.25, 103.4842, 0.0421],
+      [66 / 12, 112.1753, 0.04399], [126 / 12, 140.3948, 0.04667], [150 / 12, 152.4425, 0.04763], [186 / 12, 162.188, 0.04214], [216 / 12, 163.0595, 0.04053],
+    ];
+    for (const [years, m, s] of rows) {
+      expect(childHeightMinCm(years)).toBeLessThanOrEqual(minus3(m, s) - CHILD_HEIGHT_MARGIN_CM);
+      // And not far below it: the correction lowers the floor by 16 weeks of growth at most, the rounding by under 1 cm.
+      expect(childHeightMinCm(years)).toBeGreaterThan(minus3(m, s) - CHILD_HEIGHT_MARGIN_CM - 6);
+    }
+    // Between whole years the straight line is above the shorter sex's month by 0.13 cm at most: at 12.5 years (boys month 150).
+    expect(heightForAgeShorterCm(12.5, -3)! - minus3(152.4425, 0.04763)).toBeLessThan(0.14);
+    expect(corrected(10)).toBeCloseTo(9.693, 3);
+  });
+});
+
+describe('a child\'s height below the floor of the age is unusual, with a word on disorders of growth', () => {
+  it('a 3-year-old of 45 cm (it passed) is unusual; of 71 cm, the floor, it is not', () => {
+    // 3 y: corrected 2.693 y, between 2 y (76.05) and 3 y (95.0572, 0.04007: 83.63): 81.31 − 10 → 71.
+    expect(childHeightMinCm(3)).toBe(71);
+    expect(findings('patient age 3 y, height 45 cm')).toEqual(['PN302 1']);
+    expect(messageOf('patient age 3 y, height 45 cm')).toBe('Height 45 cm is unusual (usually 71 cm to 220 cm): check the unit and the transcription. In in it would be usual. A disorder of growth can make so short a height real at this age.');
+    expect(findings('patient age 3 y, height 71 cm, weight 9')).toEqual([]);
+    expect(findings('patient age 3 y, height 70 cm')).toEqual(['PN302 1']);
+  });
+
+  it('at 10 years: 106 cm is unusual, 107 cm is not; at 12 years 115 and 116 cm; at 17 years 131 and 132 cm', () => {
+    expect(findings('patient age 12 y, height 115 cm')).toEqual(['PN302 1']);
+    expect(findings('patient age 12 y, height 116 cm')).toEqual([]);
+    expect(findings('patient age 10 y, height 106 cm')).toEqual(['PN302 1']);
+    expect(findings('patient age 10 y, height 107 cm')).toEqual([]);
+    expect(findings('patient age 17 y, height 131 cm')).toEqual(['PN302 1']);
+    expect(findings('patient age 17 y, height 132 cm')).toEqual([]);
+  });
+
+  it('from 18 years the adult\'s usual minimum (120 cm) applies, and its message has no word on growth', () => {
+    expect(findings('patient age 18 y, height 125 cm')).toEqual([]);
+    expect(findings('patient age 18 y, height 115 cm')).toEqual(['PN302 1']);
+    expect(messageOf('patient age 18 y, height 115 cm')).not.toMatch(/growth/);
+  });
+
+  it('a bare number below the floor is read in cm from a year on (a disorder of growth can make it real), and is unusual', () => {
+    // 45 at 3 years: 45 cm, used, unusual; 100 at 10 years (floor 107): 100 cm, used, unusual.
+    for (const text of ['patient age 3 y, height 45', 'patient age 10 y, height 100']) {
+      expect(findings(text)).toEqual(['PN302 1']);
+      const s = checkNote(text).analysis.timeline.header.find((v) => v.fieldId === 'height')!;
+      expect([s.usable, s.unitDoubt]).toEqual([true, null]);
+      expect(messageOf(text)).toMatch(/A disorder of growth can make so short a height real at this age\.$/);
+    }
+    // At 17 years a bare 125 is read in cm, as an adult's is, and is unusual for the age (132 cm).
+    expect(findings('patient age 17 y, height 125')).toEqual(['PN302 1']);
+    // From the floor a bare number is a height in cm, as before.
+    expect(findings('patient age 5 y, height 90, weight 14')).toEqual([]);
+  });
+
+  it('a height above the floor says nothing of growth; the message of another field is unchanged', () => {
+    expect(messageOf('patient age 3 y, height 230 cm')).not.toMatch(/growth/);
+    expect(messageOf('patient age 3 y\n@ 08:00\nvitals hr 236')).not.toMatch(/growth/);
+  });
+});
