@@ -27,6 +27,8 @@ export const SOURCES = Object.freeze({
     'Figge J, Jabor A, Kazda A, Fencl V. Anion gap and hypoalbuminemia. Crit Care Med 1998;26(11):1807–1810: the observed gap plus 0.25 × (normal − observed albumin) in g/L, 2.5 in g/dL (read in its abstract, PubMed 9824071; the normal albumin is not given there, 4.0 g/dL here and 4.4 in some use).',
   'rastegar-2007':
     'Rastegar A. Use of the ΔAG/ΔHCO3− ratio in the diagnosis of mixed acid-base disorders. J Am Soc Nephrol 2007;18(9):2429–2431 (the citation, doi 10.1681/ASN.2006121408, read in its opening paragraph, which gives albumin 2.5 mEq/L of gap per g/dL; the bands of the ratio not read there). The bands Pneumark uses, below 0.4 a normal-gap (hyperchloraemic) acidosis, 0.4 to 0.8 a high-gap and a normal-gap acidosis together, 0.8 to 2 an uncomplicated high-gap acidosis and above 2 a high-gap acidosis with a metabolic alkalosis or a compensated respiratory acidosis, read in the English Wikipedia article "Delta ratio" (in its copy at wiki-gateway.eudic.net/wikipedia_en/Delta_Ratio.html, undated, which names no source for them); ABG teaching notes at scribd.com/document/629212188 give the same bands but 1 to 2, not 0.8 to 2, as usual for an uncomplicated high-gap acidosis.',
+  'madias-1979':
+    'Madias NE, Ayus JC, Adrogué HJ. Increased anion gap in metabolic alkalosis: the role of plasma-protein equivalency. N Engl J Med 1979;300:1421–1423 (from memory): in a metabolic alkalosis the anion gap rises modestly from the alkalaemia itself (the net negative charge of albumin rises with the pH, and volume contraction concentrates it), not from an added acid. The margin Pneumark reads so, up to 4 mmol/L above the upper normal gap (ALKALOSIS_ANION_GAP_MARGIN_MMOL_L): common practice, no source.',
   'anion-gap':
     'Anion gap = Na − (Cl + HCO3), optionally + K; normal about 12 mmol/L (8–12 with modern analysers): common practice, no source.',
   'acid-base-reference-intervals':
@@ -115,6 +117,13 @@ export const HCO3_CONSISTENCY_TOLERANCE = Object.freeze({ absoluteMmolL: 2, rela
 export const NORMAL_ANION_GAP_MMOL_L = 12;
 /** Anion gap (mmol/L, without K) above which the gap counts as high. Source: `anion-gap`. */
 export const ANION_GAP_UPPER_NORMAL_MMOL_L = 12;
+/**
+ * How far (mmol/L) above ANION_GAP_UPPER_NORMAL_MMOL_L an anion gap beside a primary metabolic
+ * alkalosis is read as the alkalaemia's own rise of the gap rather than an added high-gap acidosis:
+ * the rise the alkalaemia gives is modest (a few mmol/L), and one above the margin is more than it
+ * explains. Sources: `madias-1979` for the phenomenon; the margin common practice, no source.
+ */
+export const ALKALOSIS_ANION_GAP_MARGIN_MMOL_L = 4;
 /** Normal albumin (g/dL) for the albumin correction (Figge used 4.4 g/dL). Source: `figge-1998`. */
 export const NORMAL_ALBUMIN_G_DL = 4.0;
 /** Anion gap change (mmol/L) per g/dL of albumin. Source: `figge-1998`. */
@@ -192,6 +201,12 @@ export interface AnionGapFinding {
   readonly deltaRatioBand: DeltaRatioBand | null;
   /** Kind of metabolic acidosis, when one is identified. */
   readonly metabolicAcidosisKind: MetabolicAcidosisKind | null;
+  /**
+   * A high gap beside a primary metabolic alkalosis, no more than ALKALOSIS_ANION_GAP_MARGIN_MMOL_L
+   * above the upper normal: read as the alkalaemia itself raising the gap, and no metabolic
+   * acidosis is added for it (`madias-1979`).
+   */
+  readonly raisedByAlkalosis: boolean;
 }
 
 export interface AcidBaseInput {
@@ -662,7 +677,8 @@ function identifiedIn(d: AcidBaseDisorder, fromPrimary: readonly AcidBaseDisorde
  *    chronic or intermediate (`narins-emmett-1980`, `adrogue-madias-2010`). A response outside
  *    the range suggests a second disorder.
  * 4. With an anion gap: a gap above 12 mmol/L adds a high-gap metabolic acidosis if none is
- *    identified yet; the delta ratio (`rastegar-2007`) refines it (< 0.8 also a normal-gap
+ *    identified yet (beside a primary metabolic alkalosis, only a gap more than 4 mmol/L above 12:
+ *    a smaller rise is the alkalaemia's own, `madias-1979`); the delta ratio (`rastegar-2007`) refines it (< 0.8 also a normal-gap
  *    acidosis; > 2, or a high gap with HCO3 ≥ 24, a metabolic alkalosis unless a respiratory
  *    acidosis explains the high HCO3). A metabolic disorder so added beside a respiratory primary
  *    moves the HCO3 too: no timing is read from it, and the gas is not called fully compensated.
@@ -695,7 +711,11 @@ export function classifyAcidBase(input: AcidBaseInput): AcidBaseClassification |
     const band = ratio === null ? null : deltaRatioBand(ratio);
     const acidosisBefore = identifiedIn('metabolic-acidosis', fromPrimary, additional);
     let kind: MetabolicAcidosisKind | null = null;
-    if (high) {
+    // A modest rise beside a primary metabolic alkalosis is the alkalaemia's own (`madias-1979`).
+    const raisedByAlkalosis = high && primary === 'metabolic-alkalosis' && sideOf(gap, ANION_GAP_UPPER_NORMAL_MMOL_L + ALKALOSIS_ANION_GAP_MARGIN_MMOL_L) <= 0;
+    if (raisedByAlkalosis) {
+      // Nothing is added: the alkalosis is the primary, and the gap is its own.
+    } else if (high) {
       kind = band === 'normal-gap-acidosis' || band === 'mixed-high-and-normal-gap-acidosis' ? 'mixed-anion-gap' : 'high-anion-gap';
       if (!acidosisBefore) additional.push('metabolic-acidosis');
       const hco3HigherThanGapExplains = ratio === null || band === 'high-gap-acidosis-with-alkalosis';
@@ -705,7 +725,7 @@ export function classifyAcidBase(input: AcidBaseInput): AcidBaseClassification |
     } else if (acidosisBefore) {
       kind = 'normal-anion-gap';
     }
-    anionGapFinding = { valueMmolL: gap, high, deltaRatio: ratio, deltaRatioBand: band, metabolicAcidosisKind: kind };
+    anionGapFinding = { valueMmolL: gap, high, deltaRatio: ratio, deltaRatioBand: band, metabolicAcidosisKind: kind, raisedByAlkalosis };
   }
 
   const disorders: AcidBaseDisorder[] = copyOf(fromPrimary);
