@@ -14,7 +14,7 @@ const alkalosis = (labs: string) => `@ 08:00\nabg 7.52/50/90/38\nlabs ${labs}`;
 const finding = (text: string) => derivation(text).interpretations.find((i) => i.topic === 'acid-base')!.acidBase!;
 
 describe('anion gap beside a primary metabolic alkalosis', () => {
-  it('a gap up to 4 mmol/L above 12 is read as the alkalaemia\'s own, not an added metabolic acidosis (Madias 1979; margin common practice, no source)', () => {
+  it('with an alkalaemia, a gap up to 4 mmol/L above 12 is read as the alkalaemia\'s own, not an added metabolic acidosis (Madias 1979; margin common practice, no source)', () => {
     expect(ALKALOSIS_ANION_GAP_MARGIN_MMOL_L).toBe(4);
     const gap14 = classifyAcidBase({ ph: 7.52, paco2Mmhg: 50, hco3MmolL: 38, anionGapMmolL: 14 })!;
     expect(gap14.primary).toBe('metabolic-alkalosis');
@@ -57,6 +57,17 @@ describe('anion gap beside a primary metabolic alkalosis', () => {
     const cls = classifyAcidBase({ ph: 7.25, paco2Mmhg: 23, hco3MmolL: 9.8, anionGapMmolL: 14 })!;
     expect(cls.anionGap?.raisedByAlkalosis).toBe(false);
     expect(cls.anionGap?.metabolicAcidosisKind).toBe('mixed-anion-gap');
+  });
+
+  it('a metabolic alkalosis without an alkalaemia keeps its added acidosis: nothing raises the charge of albumin at a normal pH', () => {
+    // pH 7.43, PaCO2 46, HCO3 30 (0.0307 × 46 × 10^1.33 = 30.2): a compensated metabolic alkalosis, pH within 7.35–7.45.
+    const cls = classifyAcidBase({ ph: 7.43, paco2Mmhg: 46, hco3MmolL: 30, anionGapMmolL: 14 })!;
+    expect(cls.primary).toBe('metabolic-alkalosis');
+    expect(cls.phStatus).toBe('normal');
+    expect(cls.additional).toContain('metabolic-acidosis');
+    expect(cls.anionGap?.raisedByAlkalosis).toBe(false);
+    // Na 140 − (Cl 96 + HCO3 30) = 14.
+    expect(readings('@ 08:00\nabg 7.43/46/90/30\nlabs na 140, cl 96')['acid-base']).toContain('also consistent with an added metabolic acidosis (anion gap 14 mmol/L, above 12 mmol/L)');
   });
 
   it('a respiratory alkalosis with a gap of 14 keeps its added metabolic acidosis (the margin is for a primary metabolic alkalosis only)', () => {

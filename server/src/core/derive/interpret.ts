@@ -717,8 +717,8 @@ function acidBaseText(cls: AcidBaseClassification, finding: ReadFinding, gas: Ga
   const hco3Shown = `HCO3 ${formatAgainst(hco3, HCO3_DECIMALS, limits.hco3[0], limits.hco3[1])} mmol/L`;
   const numbers = `${phShown}, ${paco2Shown}, ${hco3Shown}`;
   // The anion gap as the reading names it: `anion gap 26 mmol/L`, `anion gap 23 mmol/L corrected for albumin`.
-  // Beside a primary metabolic alkalosis, also kept on its side of the margin the alkalaemia's own rise is read within.
-  const gapMarginEnd = cls.primary === 'metabolic-alkalosis' ? ANION_GAP_UPPER_NORMAL_MMOL_L + ALKALOSIS_ANION_GAP_MARGIN_MMOL_L : NaN;
+  // Beside a primary metabolic alkalosis with an alkalaemia, also kept on its side of the margin the alkalaemia's own rise is read within.
+  const gapMarginEnd = cls.primary === 'metabolic-alkalosis' && cls.phStatus === 'alkalaemia' ? ANION_GAP_UPPER_NORMAL_MMOL_L + ALKALOSIS_ANION_GAP_MARGIN_MMOL_L : NaN;
   const gapShown = gap ? `anion gap ${formatAgainst(gap.valueMmolL, 0, ANION_GAP_UPPER_NORMAL_MMOL_L, gapMarginEnd)} mmol/L${basis.gapCorrected ? ' corrected for albumin' : ''}` : '';
   const ratioShown = gap?.deltaRatio !== null && gap?.deltaRatio !== undefined ? `delta ratio ${formatAgainst(gap.deltaRatio, 2, 0.4, 0.8, 2)}` : '';
   // Where the anion gap names the kind of a metabolic acidosis: the gap, and the delta ratio unless the gap is normal.

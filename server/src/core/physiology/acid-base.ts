@@ -202,9 +202,10 @@ export interface AnionGapFinding {
   /** Kind of metabolic acidosis, when one is identified. */
   readonly metabolicAcidosisKind: MetabolicAcidosisKind | null;
   /**
-   * A high gap beside a primary metabolic alkalosis, no more than ALKALOSIS_ANION_GAP_MARGIN_MMOL_L
-   * above the upper normal: read as the alkalaemia itself raising the gap, and no metabolic
-   * acidosis is added for it (`madias-1979`).
+   * A high gap beside a primary metabolic alkalosis with an alkalaemia (pH above 7.45), no more than
+   * ALKALOSIS_ANION_GAP_MARGIN_MMOL_L above the upper normal: read as the alkalaemia itself raising
+   * the gap, and no metabolic acidosis is added for it (`madias-1979`). With a pH within its
+   * reference interval nothing raises the charge of albumin, and the gap is read as before.
    */
   readonly raisedByAlkalosis: boolean;
 }
@@ -677,8 +678,8 @@ function identifiedIn(d: AcidBaseDisorder, fromPrimary: readonly AcidBaseDisorde
  *    chronic or intermediate (`narins-emmett-1980`, `adrogue-madias-2010`). A response outside
  *    the range suggests a second disorder.
  * 4. With an anion gap: a gap above 12 mmol/L adds a high-gap metabolic acidosis if none is
- *    identified yet (beside a primary metabolic alkalosis, only a gap more than 4 mmol/L above 12:
- *    a smaller rise is the alkalaemia's own, `madias-1979`); the delta ratio (`rastegar-2007`) refines it (< 0.8 also a normal-gap
+ *    identified yet (beside a primary metabolic alkalosis with an alkalaemia, only a gap more than
+ *    4 mmol/L above 12: a smaller rise is the alkalaemia's own, `madias-1979`); the delta ratio (`rastegar-2007`) refines it (< 0.8 also a normal-gap
  *    acidosis; > 2, or a high gap with HCO3 ≥ 24, a metabolic alkalosis unless a respiratory
  *    acidosis explains the high HCO3). A metabolic disorder so added beside a respiratory primary
  *    moves the HCO3 too: no timing is read from it, and the gas is not called fully compensated.
@@ -712,7 +713,8 @@ export function classifyAcidBase(input: AcidBaseInput): AcidBaseClassification |
     const acidosisBefore = identifiedIn('metabolic-acidosis', fromPrimary, additional);
     let kind: MetabolicAcidosisKind | null = null;
     // A modest rise beside a primary metabolic alkalosis is the alkalaemia's own (`madias-1979`).
-    const raisedByAlkalosis = high && primary === 'metabolic-alkalosis' && sideOf(gap, ANION_GAP_UPPER_NORMAL_MMOL_L + ALKALOSIS_ANION_GAP_MARGIN_MMOL_L) <= 0;
+    // Only with an alkalaemia: the rise comes from the raised pH (and the volume contraction with it).
+    const raisedByAlkalosis = high && primary === 'metabolic-alkalosis' && phStatus === 'alkalaemia' && sideOf(gap, ANION_GAP_UPPER_NORMAL_MMOL_L + ALKALOSIS_ANION_GAP_MARGIN_MMOL_L) <= 0;
     if (raisedByAlkalosis) {
       // Nothing is added: the alkalosis is the primary, and the gap is its own.
     } else if (high) {
