@@ -48,6 +48,7 @@ describe('the column list', () => {
       'fio2_in_force',
       'peep_total_cmH2O',
       'autopeep_cmH2O',
+      'sbe_mmol_L', 'sbe_venous_mmol_L',
     ]);
   });
 

@@ -351,6 +351,10 @@ describe('null safety (fast-check)', () => {
     classifyAcidBase: totality(fc.tuple(fc.oneof(gasInput, plausibleGas)), acidBase.classifyAcidBase),
     arterialPhFromVenous: totality(fc.tuple(d), acidBase.arterialPhFromVenous),
     venousPco2Screen: totality(fc.tuple(d, d), acidBase.venousPco2Screen),
+    standardBaseExcess: totality(fc.tuple(d, d), acidBase.standardBaseExcess),
+    actualBaseExcess: totality(fc.tuple(d, d, d), acidBase.actualBaseExcess),
+    baseExcessSpan: totality(fc.tuple(d, d, fc.option(d, { nil: null })), acidBase.baseExcessSpan),
+    baseExcessAgrees: totality(fc.tuple(d, fc.record({ low: d, high: d })), acidBase.baseExcessAgrees),
   };
   it('covers every exported function', () => {
     expect(Object.keys(cases).sort()).toEqual(exportedFunctionNames(acidBase));

@@ -59,8 +59,11 @@ const MMHG: readonly (readonly [string, string | null])[] = [
   ['abg 7.47/56/80/40', 'consistent with met. alkalosis + resp. acidosis?'],
   // Expected 43.6–47.6; PaCO2 38 below it.
   ['abg 7.54/38/90/32', 'consistent with met. alkalosis + resp. alkalosis?'],
-  // AG 145 − (95 + 34) = 16, HCO3 not below 24: an added metabolic acidosis.
-  ['abg 7.47/47/90/34\nlabs na 145, cl 95', 'consistent with met. alkalosis + met. acidosis | AG 16'],
+  // AG 145 − (95 + 34) = 16, within 4 of 12 beside a primary metabolic alkalosis: the alkalaemia's own
+  // rise (Madias, Ayus & Adrogué 1979, from memory; the margin common practice, no source), no acidosis added.
+  ['abg 7.47/47/90/34\nlabs na 145, cl 95', 'consistent with met. alkalosis | AG 16'],
+  // AG 146 − (95 + 34) = 17, beyond that margin, HCO3 not below 24: an added metabolic acidosis.
+  ['abg 7.47/47/90/34\nlabs na 146, cl 95', 'consistent with met. alkalosis + met. acidosis | AG 17'],
 
   // Respiratory acidosis, PaCO2 60: acute HCO3 24–28, chronic 29–36 mmol/L.
   ['abg 7.25/60/70/26', 'consistent with resp. acidosis, acute'],

@@ -14,6 +14,7 @@ import { pao2AboveAlveolar } from './alveolar-limit';
 import { occultHypoxaemiaCheck } from './occult-hypoxaemia';
 import { complianceImplausible } from './compliance-reach';
 import { gasInconsistent } from './gas-consistency';
+import { baseExcessDisagrees } from './base-excess';
 import { internalError } from './internal';
 import { acidBaseReading, oxygenationReading, respiratoryFailureReading, venousGasReading, ventilationReading } from './interpretations';
 import { drivingPressureHigh, plateauHigh, tidalVolumeHigh } from './ventilation-limits';
@@ -86,6 +87,7 @@ export const CHECKS: readonly CheckDef[] = validateCheckList([
   respiratoryFailureReading,
   acidBaseReading,
   venousGasReading,
+  baseExcessDisagrees,
   totalPeepImpossible,
   possibleName,
   birthDate,

@@ -11,6 +11,7 @@ import {
   expectedPaco2MetabolicAcidosis,
   expectedPaco2MetabolicAlkalosis,
   hco3FromPhPco2,
+  standardBaseExcess,
   type AcidBaseClassification,
 } from '../physiology';
 import { sideOf } from '../physiology/numeric';
@@ -238,3 +239,50 @@ function respiratoryExpected(chronicity: 'acute' | 'chronic') {
 
 export const hco3ExpectedAcute = respiratoryExpected('acute');
 export const hco3ExpectedChronic = respiratoryExpected('chronic');
+
+/**
+ * The standard base excess of the arterial gas stated here, from its pH and HCO3. Reported where
+ * an arterial HCO3 is stated; no inlay hint (the acid–base hints are the anion gap's).
+ * Source: `van-slyke-sbe`.
+ */
+export const standardBaseExcessDef = defineDerived({
+  id: 'sbe',
+  label: 'Standard base excess, from pH and HCO3',
+  short: 'SBE calc',
+  unit: 'mmol/L',
+  decimals: 1,
+  category: 'acid-base',
+  formula: '0.93 × ({HCO3} − 24.4 + 14.8 × ({pH} − 7.40))',
+  source: SOURCES['van-slyke-sbe'],
+  anchors: ['hco3'],
+  compute(c) {
+    const hco3 = c.field('hco3', 'HCO3');
+    const ph = c.field('ph', 'pH');
+    if (!hco3 || !ph) return c.missing([ph, c.needFor('ph', 'ph')], [hco3, c.needFor('hco3', 'hco3')]);
+    const notes = gasHco3Doubted(c, hco3);
+    return c.value(standardBaseExcess(ph.value, hco3.value), [hco3, ph], notes.length > 0 ? { notes } : undefined);
+  },
+});
+
+/**
+ * The standard base excess of the venous gas stated here, from its own pH and HCO3 (never an
+ * arterial pH with a venous HCO3). Reported where a venous HCO3 is stated. Source: `van-slyke-sbe`.
+ */
+export const standardBaseExcessVenousDef = defineDerived({
+  id: 'sbe_venous',
+  label: 'Standard base excess of the venous gas, from its pH and HCO3',
+  short: 'SBE(v) calc',
+  unit: 'mmol/L',
+  decimals: 1,
+  category: 'acid-base',
+  formula: '0.93 × ({HCO3(v)} − 24.4 + 14.8 × ({pH(v)} − 7.40))',
+  source: SOURCES['van-slyke-sbe'],
+  anchors: ['hco3_venous'],
+  compute(c) {
+    const hco3 = c.field('hco3_venous', 'HCO3(v)');
+    const ph = c.field('ph_venous', 'pH(v)');
+    if (!hco3 || !ph) return c.missing([ph, c.needFor('ph_venous', 'ph')], [hco3, c.needFor('hco3_venous', 'hco3')]);
+    const notes = gasHco3Doubted(c, hco3);
+    return c.value(standardBaseExcess(ph.value, hco3.value), [hco3, ph], notes.length > 0 ? { notes } : undefined);
+  },
+});

@@ -4,7 +4,7 @@
  * settings (hypoxaemia PaO2 < 60 mmHg and hypercapnia PaCO2 > 50 mmHg by default, common
  * practice). Grades and cut-offs not taken from settings are named below with their source.
  */
-import { ANION_GAP_UPPER_NORMAL_MMOL_L, BERLIN_BAND_SEVERITY, HCO3_CENTRE_MMOL_L, HCO3_NORMAL_MMOL_L, PACO2_NORMAL_MMHG, PH_NORMAL, berlinOxygenationBand, inspiredPo2Humidified, type AcidBaseClassification, type AcidBaseDisorder, type BerlinOxygenationBand, type MetabolicAcidosisKind, type PrimaryAcidBaseFinding } from '../physiology';
+import { ALKALOSIS_ANION_GAP_MARGIN_MMOL_L, ANION_GAP_UPPER_NORMAL_MMOL_L, BERLIN_BAND_SEVERITY, HCO3_CENTRE_MMOL_L, HCO3_NORMAL_MMOL_L, PACO2_NORMAL_MMHG, PH_NORMAL, berlinOxygenationBand, inspiredPo2Humidified, type AcidBaseClassification, type AcidBaseDisorder, type BerlinOxygenationBand, type MetabolicAcidosisKind, type PrimaryAcidBaseFinding } from '../physiology';
 import { sideOf } from '../physiology/numeric';
 import type { Settings } from '../settings';
 import { formatAgainst, formatAgeYears, formatNumber, formatShort, rangeAgainst, wordList, writtenDecimals } from '../util/format';
@@ -717,7 +717,9 @@ function acidBaseText(cls: AcidBaseClassification, finding: ReadFinding, gas: Ga
   const hco3Shown = `HCO3 ${formatAgainst(hco3, HCO3_DECIMALS, limits.hco3[0], limits.hco3[1])} mmol/L`;
   const numbers = `${phShown}, ${paco2Shown}, ${hco3Shown}`;
   // The anion gap as the reading names it: `anion gap 26 mmol/L`, `anion gap 23 mmol/L corrected for albumin`.
-  const gapShown = gap ? `anion gap ${formatAgainst(gap.valueMmolL, 0, ANION_GAP_UPPER_NORMAL_MMOL_L)} mmol/L${basis.gapCorrected ? ' corrected for albumin' : ''}` : '';
+  // Beside a primary metabolic alkalosis with an alkalaemia, also kept on its side of the margin the alkalaemia's own rise is read within.
+  const gapMarginEnd = cls.primary === 'metabolic-alkalosis' && cls.phStatus === 'alkalaemia' ? ANION_GAP_UPPER_NORMAL_MMOL_L + ALKALOSIS_ANION_GAP_MARGIN_MMOL_L : NaN;
+  const gapShown = gap ? `anion gap ${formatAgainst(gap.valueMmolL, 0, ANION_GAP_UPPER_NORMAL_MMOL_L, gapMarginEnd)} mmol/L${basis.gapCorrected ? ' corrected for albumin' : ''}` : '';
   const ratioShown = gap?.deltaRatio !== null && gap?.deltaRatio !== undefined ? `delta ratio ${formatAgainst(gap.deltaRatio, 2, 0.4, 0.8, 2)}` : '';
   // Where the anion gap names the kind of a metabolic acidosis: the gap, and the delta ratio unless the gap is normal.
   const gapDetail = gapKind !== null ? `; ${[gapShown, gapKind === 'normal-anion-gap' ? '' : ratioShown].filter(Boolean).join(', ')}` : '';
@@ -773,6 +775,10 @@ function acidBaseText(cls: AcidBaseClassification, finding: ReadFinding, gas: Ga
         text += `; HCO3 ${formatNumber(o, HCO3_DECIMALS)} mmol/L does not tell acute from chronic, as the added ${moved} it too (${acuteRange} expected if acute, ${chronicRange} if chronic)`;
       }
     }
+  }
+  if (gap?.raisedByAlkalosis) {
+    // A modest rise beside a primary metabolic alkalosis: said as the alkalaemia's own, not an added acidosis.
+    text += `; ${gapShown}, above ${ANION_GAP_UPPER_NORMAL_MMOL_L} mmol/L by no more than ${ALKALOSIS_ANION_GAP_MARGIN_MMOL_L}: consistent with the alkalaemia itself raising the gap rather than an added ${DISORDER_WORDS['metabolic-acidosis']}`;
   }
   const extra = finding.added;
   if (extra.length > 0) {

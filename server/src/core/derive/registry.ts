@@ -38,6 +38,8 @@ export const DERIVED: readonly DerivedDefinition[] = validateDerived([
   acidBase.paco2Expected,
   acidBase.hco3ExpectedAcute,
   acidBase.hco3ExpectedChronic,
+  acidBase.standardBaseExcessDef,
+  acidBase.standardBaseExcessVenousDef,
   mech.minuteVentilation,
   mech.pbw,
   mech.vtPerKg,

@@ -21,7 +21,8 @@
  *   mean_bp_mmHg (a mean arterial pressure as measured), insp_pressure_cmH2O (the set inspiratory
  *   pressure of pressure control, above PEEP), fio2_in_force (the FiO2 the calculations use: 0.21
  *   on room air, where fio2_fraction, the FiO2 written, is empty), peep_total_cmH2O and autopeep_cmH2O
- *   (total and intrinsic PEEP of an end-expiratory hold).
+ *   (total and intrinsic PEEP of an end-expiratory hold), sbe_mmol_L and sbe_venous_mmol_L (the
+ *   standard base excess the arterial and the venous gas's pH and HCO3 give).
  *
  * Cells:
  * - Field values are those in force at the timepoint: stated there, carried from an earlier
@@ -457,6 +458,8 @@ const ADDED_LATER: readonly { readonly kind: 'field' | 'derived' | 'in-force'; r
   { kind: 'in-force', id: 'fio2' },
   { kind: 'field', id: 'peep_total' },
   { kind: 'field', id: 'autopeep' },
+  { kind: 'derived', id: 'sbe' },
+  { kind: 'derived', id: 'sbe_venous' },
 ];
 
 /**

@@ -27,6 +27,8 @@ export const SOURCES = Object.freeze({
     'Figge J, Jabor A, Kazda A, Fencl V. Anion gap and hypoalbuminemia. Crit Care Med 1998;26(11):1807–1810: the observed gap plus 0.25 × (normal − observed albumin) in g/L, 2.5 in g/dL (read in its abstract, PubMed 9824071; the normal albumin is not given there, 4.0 g/dL here and 4.4 in some use).',
   'rastegar-2007':
     'Rastegar A. Use of the ΔAG/ΔHCO3− ratio in the diagnosis of mixed acid-base disorders. J Am Soc Nephrol 2007;18(9):2429–2431 (the citation, doi 10.1681/ASN.2006121408, read in its opening paragraph, which gives albumin 2.5 mEq/L of gap per g/dL; the bands of the ratio not read there). The bands Pneumark uses, below 0.4 a normal-gap (hyperchloraemic) acidosis, 0.4 to 0.8 a high-gap and a normal-gap acidosis together, 0.8 to 2 an uncomplicated high-gap acidosis and above 2 a high-gap acidosis with a metabolic alkalosis or a compensated respiratory acidosis, read in the English Wikipedia article "Delta ratio" (in its copy at wiki-gateway.eudic.net/wikipedia_en/Delta_Ratio.html, undated, which names no source for them); ABG teaching notes at scribd.com/document/629212188 give the same bands but 1 to 2, not 0.8 to 2, as usual for an uncomplicated high-gap acidosis.',
+  'madias-1979':
+    'Madias NE, Ayus JC, Adrogué HJ. Increased anion gap in metabolic alkalosis: the role of plasma-protein equivalency. N Engl J Med 1979;300:1421–1423 (from memory): in a metabolic alkalosis the anion gap rises modestly from the alkalaemia itself (the net negative charge of albumin rises with the pH, and volume contraction concentrates it), not from an added acid. The margin Pneumark reads so, up to 4 mmol/L above the upper normal gap (ALKALOSIS_ANION_GAP_MARGIN_MMOL_L): common practice, no source.',
   'anion-gap':
     'Anion gap = Na − (Cl + HCO3), optionally + K; normal about 12 mmol/L (8–12 with modern analysers): common practice, no source.',
   'acid-base-reference-intervals':
@@ -39,6 +41,10 @@ export const SOURCES = Object.freeze({
     'Kelly AM. Review article: Can venous blood gas analysis replace arterial in emergency medical care. Emerg Med Australas 2010;22:493–498 (read in its abstract): mean arterio–venous pH difference 0.035 with narrow limits of agreement; venous pH and bicarbonate agree well enough with arterial values in patients not in shock; venous pCO2 does not.',
   'kelly-2005':
     'Kelly AM, Kerr D, Middleton P. Validation of venous pCO2 to screen for arterial hypercarbia in patients with chronic obstructive airways disease. J Emerg Med 2005;28(4):377–379 (read in its abstract): a venous pCO2 above 45 mmHg caught all 43 patients whose arterial pCO2 was above 50 mmHg; none of the 30 with a venous pCO2 below 45 mmHg had one.',
+  'van-slyke-sbe':
+    'Standard base excess (of the extracellular fluid) by the Van Slyke equation as standardised, SBE = 0.93 × (HCO3 − 24.4 + 14.8 × (pH − 7.40)) mmol/L, and the actual (blood) base excess, ABE = (1 − 0.014 × Hb) × (HCO3 − 24.8 + (1.43 × Hb + 7.7) × (pH − 7.40)) with Hb in g/dL: CLSI C46-A2, Blood Gas and pH Analysis and Related Measurements, Approved Guideline, Second Edition, 2009; Siggaard-Andersen O, The acid-base status of the blood, 4th edition, 1974, and Scand J Clin Lab Invest 1977;37(Suppl 146):15–20 (all from memory, none read here).',
+  'pneumark-base-excess-tolerance':
+    'A stated base excess is accepted within ±3 mmol/L of the span from the lowest to the highest of the standard and the actual base excess (BASE_EXCESS_TOLERANCE_MMOL_L), the actual one over the stated Hb or, with none, over Hb 7–17 g/dL: common practice, no source; reasoning given beside the constants.',
   'pneumark-consistency-tolerance':
     'Tolerance for reported vs calculated HCO3 (HCO3_CONSISTENCY_TOLERANCE): Pneumark’s own choice, no source; reasoning given beside the constant.',
 } as const);
@@ -111,6 +117,13 @@ export const HCO3_CONSISTENCY_TOLERANCE = Object.freeze({ absoluteMmolL: 2, rela
 export const NORMAL_ANION_GAP_MMOL_L = 12;
 /** Anion gap (mmol/L, without K) above which the gap counts as high. Source: `anion-gap`. */
 export const ANION_GAP_UPPER_NORMAL_MMOL_L = 12;
+/**
+ * How far (mmol/L) above ANION_GAP_UPPER_NORMAL_MMOL_L an anion gap beside a primary metabolic
+ * alkalosis is read as the alkalaemia's own rise of the gap rather than an added high-gap acidosis:
+ * the rise the alkalaemia gives is modest (a few mmol/L), and one above the margin is more than it
+ * explains. Sources: `madias-1979` for the phenomenon; the margin common practice, no source.
+ */
+export const ALKALOSIS_ANION_GAP_MARGIN_MMOL_L = 4;
 /** Normal albumin (g/dL) for the albumin correction (Figge used 4.4 g/dL). Source: `figge-1998`. */
 export const NORMAL_ALBUMIN_G_DL = 4.0;
 /** Anion gap change (mmol/L) per g/dL of albumin. Source: `figge-1998`. */
@@ -188,6 +201,13 @@ export interface AnionGapFinding {
   readonly deltaRatioBand: DeltaRatioBand | null;
   /** Kind of metabolic acidosis, when one is identified. */
   readonly metabolicAcidosisKind: MetabolicAcidosisKind | null;
+  /**
+   * A high gap beside a primary metabolic alkalosis with an alkalaemia (pH above 7.45), no more than
+   * ALKALOSIS_ANION_GAP_MARGIN_MMOL_L above the upper normal: read as the alkalaemia itself raising
+   * the gap, and no metabolic acidosis is added for it (`madias-1979`). With a pH within its
+   * reference interval nothing raises the charge of albumin, and the gap is read as before.
+   */
+  readonly raisedByAlkalosis: boolean;
 }
 
 export interface AcidBaseInput {
@@ -658,7 +678,8 @@ function identifiedIn(d: AcidBaseDisorder, fromPrimary: readonly AcidBaseDisorde
  *    chronic or intermediate (`narins-emmett-1980`, `adrogue-madias-2010`). A response outside
  *    the range suggests a second disorder.
  * 4. With an anion gap: a gap above 12 mmol/L adds a high-gap metabolic acidosis if none is
- *    identified yet; the delta ratio (`rastegar-2007`) refines it (< 0.8 also a normal-gap
+ *    identified yet (beside a primary metabolic alkalosis with an alkalaemia, only a gap more than
+ *    4 mmol/L above 12: a smaller rise is the alkalaemia's own, `madias-1979`); the delta ratio (`rastegar-2007`) refines it (< 0.8 also a normal-gap
  *    acidosis; > 2, or a high gap with HCO3 ≥ 24, a metabolic alkalosis unless a respiratory
  *    acidosis explains the high HCO3). A metabolic disorder so added beside a respiratory primary
  *    moves the HCO3 too: no timing is read from it, and the gas is not called fully compensated.
@@ -691,7 +712,12 @@ export function classifyAcidBase(input: AcidBaseInput): AcidBaseClassification |
     const band = ratio === null ? null : deltaRatioBand(ratio);
     const acidosisBefore = identifiedIn('metabolic-acidosis', fromPrimary, additional);
     let kind: MetabolicAcidosisKind | null = null;
-    if (high) {
+    // A modest rise beside a primary metabolic alkalosis is the alkalaemia's own (`madias-1979`).
+    // Only with an alkalaemia: the rise comes from the raised pH (and the volume contraction with it).
+    const raisedByAlkalosis = high && primary === 'metabolic-alkalosis' && phStatus === 'alkalaemia' && sideOf(gap, ANION_GAP_UPPER_NORMAL_MMOL_L + ALKALOSIS_ANION_GAP_MARGIN_MMOL_L) <= 0;
+    if (raisedByAlkalosis) {
+      // Nothing is added: the alkalosis is the primary, and the gap is its own.
+    } else if (high) {
       kind = band === 'normal-gap-acidosis' || band === 'mixed-high-and-normal-gap-acidosis' ? 'mixed-anion-gap' : 'high-anion-gap';
       if (!acidosisBefore) additional.push('metabolic-acidosis');
       const hco3HigherThanGapExplains = ratio === null || band === 'high-gap-acidosis-with-alkalosis';
@@ -701,7 +727,7 @@ export function classifyAcidBase(input: AcidBaseInput): AcidBaseClassification |
     } else if (acidosisBefore) {
       kind = 'normal-anion-gap';
     }
-    anionGapFinding = { valueMmolL: gap, high, deltaRatio: ratio, deltaRatioBand: band, metabolicAcidosisKind: kind };
+    anionGapFinding = { valueMmolL: gap, high, deltaRatio: ratio, deltaRatioBand: band, metabolicAcidosisKind: kind, raisedByAlkalosis };
   }
 
   const disorders: AcidBaseDisorder[] = copyOf(fromPrimary);
@@ -758,4 +784,106 @@ export type VenousPco2Screen = 'hypercapnia-not-excluded' | 'hypercapnia-unlikel
 export function venousPco2Screen(pvco2Mmhg: number, resolutionMmhg = 0): VenousPco2Screen | null {
   if (!allFinite(pvco2Mmhg, resolutionMmhg) || pvco2Mmhg <= 0) return null;
   return sideOf(pvco2Mmhg, VENOUS_PCO2_SCREEN_MMHG, resolutionMmhg) > 0 ? 'hypercapnia-not-excluded' : 'hypercapnia-unlikely';
+}
+
+/**
+ * Base excess: the standard base excess of the extracellular fluid (SBE) and the actual base excess
+ * of blood (ABE), both by the Van Slyke equation as standardised (`van-slyke-sbe`, from memory).
+ *
+ * Hb units: the ABE form is pinned with Hb in g/dL. Some texts print it with ctHb in mmol/L (of
+ * the monomer; 1 g/dL ≈ 0.6206 mmol/L). The g/dL reading is the one that agrees with the SBE form:
+ * the SBE is the ABE of blood diluted into the extracellular fluid, whose Hb is about a third of
+ * the blood's, about 5 g/dL (3 mmol/L); with Hb 5 in g/dL the ABE's factors are 1 − 0.014 × 5 =
+ * 0.93 and 1.43 × 5 + 7.7 = 14.85, the SBE's 0.93 and 14.8, where Hb 3 in mmol/L would give 0.958
+ * and 12.0. So a stated Hb, held in g/dL inside the core, is put in as it is.
+ */
+
+/** pH at which a base excess is worked out against (the standard's reference), and the HCO3 bases of the two forms. Source: `van-slyke-sbe`. */
+export const BASE_EXCESS_REFERENCE_PH = 7.4;
+const SBE_HCO3_BASE = 24.4;
+const SBE_FACTOR = 0.93;
+const SBE_BUFFER_SLOPE = 14.8;
+const ABE_HCO3_BASE = 24.8;
+
+/**
+ * The Hb span (g/dL) the actual base excess is taken over when no Hb is stated: from a severe
+ * anaemia that still needs no transfusion to a high normal value in men. Common practice, no
+ * source (`pneumark-base-excess-tolerance`).
+ */
+export const BASE_EXCESS_HB_SPAN_G_DL: NumericRange = Object.freeze({ low: 7, high: 17 });
+
+/**
+ * How far (± mmol/L) a stated base excess may lie beyond the span of the standard and the actual
+ * base excess and still agree with the pH and HCO3: analysers differ in the form they print (SBE
+ * or ABE, ECF Hb 3 or 5 mmol/L, their own constants), a pH rounded to 0.01 moves the SBE by about
+ * 0.14 mmol/L and an HCO3 rounded to 1 mmol/L by about 0.5; ±3 leaves room for these together
+ * while a sign written wrong or a value from another gas (most differ by more) is still caught.
+ * Common practice, no source (`pneumark-base-excess-tolerance`).
+ */
+export const BASE_EXCESS_TOLERANCE_MMOL_L = 3;
+
+/**
+ * Standard base excess (mmol/L): 0.93 × (HCO3 − 24.4 + 14.8 × (pH − 7.40)). Negative for a base
+ * deficit. `null` unless 0 ≤ pH ≤ 14 and HCO3 ≥ 0. Source: `van-slyke-sbe`.
+ */
+export function standardBaseExcess(ph: number, hco3MmolL: number): number | null {
+  if (!validPh(ph) || !allFinite(hco3MmolL) || hco3MmolL < 0) return null;
+  return finiteOrNull(SBE_FACTOR * (hco3MmolL - SBE_HCO3_BASE + SBE_BUFFER_SLOPE * (ph - BASE_EXCESS_REFERENCE_PH)));
+}
+
+/**
+ * Actual (blood) base excess (mmol/L), Hb in g/dL: (1 − 0.014 × Hb) × (HCO3 − 24.8 + (1.43 × Hb
+ * + 7.7) × (pH − 7.40)). `null` unless 0 ≤ pH ≤ 14, HCO3 ≥ 0 and 0 < Hb ≤ 50 g/dL (the factor
+ * 1 − 0.014 × Hb stays positive). Source: `van-slyke-sbe`.
+ */
+export function actualBaseExcess(ph: number, hco3MmolL: number, hbGdl: number): number | null {
+  if (!validPh(ph) || !allFinite(hco3MmolL, hbGdl) || hco3MmolL < 0 || hbGdl <= 0 || hbGdl > 50) return null;
+  return finiteOrNull((1 - 0.014 * hbGdl) * (hco3MmolL - ABE_HCO3_BASE + (1.43 * hbGdl + 7.7) * (ph - BASE_EXCESS_REFERENCE_PH)));
+}
+
+/**
+ * The span (mmol/L) from the lowest to the highest base excess the pH and HCO3 give: the standard
+ * base excess and the actual one, the latter at the stated Hb (g/dL) or, with none (`null`), over
+ * every Hb of BASE_EXCESS_HB_SPAN_G_DL (the actual base excess is a quadratic in Hb: its ends and,
+ * where it falls inside, its turning point). `null` where either form is; a given Hb must be usable
+ * by `actualBaseExcess`. Source: `van-slyke-sbe`.
+ */
+export function baseExcessSpan(ph: number, hco3MmolL: number, hbGdl: number | null = null): NumericRange | null {
+  const sbe = standardBaseExcess(ph, hco3MmolL);
+  if (sbe === null) return null;
+  let low = sbe;
+  let high = sbe;
+  const take = (hb: number): boolean => {
+    const abe = actualBaseExcess(ph, hco3MmolL, hb);
+    if (abe === null) return false;
+    if (abe < low) low = abe;
+    if (abe > high) high = abe;
+    return true;
+  };
+  if (hbGdl !== null) {
+    if (!take(hbGdl)) return null;
+    return { low, high };
+  }
+  const span = BASE_EXCESS_HB_SPAN_G_DL;
+  if (!take(span.low) || !take(span.high)) return null;
+  // ABE = A + (B − 0.014 A) × Hb − 0.014 B × Hb², with A = HCO3 − 24.8 + 7.7 × (pH − 7.40) and
+  // B = 1.43 × (pH − 7.40): a turning point at Hb = (B − 0.014 A) ÷ (0.028 B) where B ≠ 0.
+  const x = ph - BASE_EXCESS_REFERENCE_PH;
+  const a = hco3MmolL - ABE_HCO3_BASE + 7.7 * x;
+  const b = 1.43 * x;
+  if (b !== 0) {
+    const turning = (b - 0.014 * a) / (0.028 * b);
+    if (Number.isFinite(turning) && turning > span.low && turning < span.high) take(turning);
+  }
+  return { low, high };
+}
+
+/**
+ * Whether a stated base excess (mmol/L) agrees with a span from `baseExcessSpan`: within it widened by
+ * BASE_EXCESS_TOLERANCE_MMOL_L on both sides, ends included as on paper (`sideOf`).
+ * Source: `pneumark-base-excess-tolerance`.
+ */
+export function baseExcessAgrees(statedMmolL: number, span: NumericRange): boolean {
+  if (!allFinite(statedMmolL, span.low, span.high)) return false;
+  return sideOf(statedMmolL, span.low - BASE_EXCESS_TOLERANCE_MMOL_L) >= 0 && sideOf(statedMmolL, span.high + BASE_EXCESS_TOLERANCE_MMOL_L) <= 0;
 }
