@@ -29,3 +29,15 @@ describe('words of the format', () => {
     expect(read('vitals 80 hr')).toEqual(['vitals', ['hr', 'hr', null, null, null], ['stray-text', 'missing-value']]);
   });
 });
+
+describe('decimal commas, looked for only on a line where a digit follows a comma', () => {
+  it('reports one inside a word and one right after a separating comma (`(,5)`), and none after a lone sign', () => {
+    const spans = (text: string) => parseNote(text).lines[0]!.issues.filter((i) => i.check === 'decimal-comma').map((i) => [i.span.start, i.span.end]);
+    expect(spans('vitals temp 37,5 C')).toEqual([[12, 16]]);
+    expect(spans('abg 7,35/40/80/24')).toEqual([[4, 8]]);
+    expect(spans('vitals bp 120/80,5')).toEqual([[14, 18]]);
+    expect(spans('vitals hr 80,rr 7,5')).toEqual([[16, 19]]);
+    expect(spans('vitals bp 120/80 (,5)')).toEqual([[18, 20]]);
+    expect(spans('vitals hr -,5')).toEqual([]);
+  });
+});

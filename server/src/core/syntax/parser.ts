@@ -188,10 +188,20 @@ const SECTION_OF_KNOWN: readonly (SectionDef | null)[] = VOCABULARY_WORDS.map((w
 const UNIT_KNOWN: readonly boolean[] = VOCABULARY_WORDS.map((w) => isKnownUnitSpelling(w));
 const FIELDS_OF_KNOWN: ReadonlyMap<SectionId, readonly (FieldDef | null)[]> = new Map(SECTIONS.map((s) => [s.id, VOCABULARY_WORDS.map((w) => fieldFor(s.id, w) ?? null)] as const));
 
-/** The fields of a section's keys by the index of the word (a row of FIELDS_OF_KNOWN). */
+/**
+ * The fields of a section's keys by the index of the word (a row of FIELDS_OF_KNOWN). Asked for
+ * each line and each unit read: the row of the section asked last is kept (a one-entry memo).
+ */
 function knownFieldsOf(section: SectionId): readonly (FieldDef | null)[] {
-  return FIELDS_OF_KNOWN.get(section) ?? NONE;
+  if (section !== LAST_FIELDS_SECTION) {
+    LAST_FIELDS = FIELDS_OF_KNOWN.get(section) ?? NONE;
+    LAST_FIELDS_SECTION = section;
+  }
+  return LAST_FIELDS;
 }
+
+let LAST_FIELDS_SECTION: SectionId | null = null;
+let LAST_FIELDS: readonly (FieldDef | null)[] = NONE;
 
 /** The field a word is the key of in `section`, whose row of FIELDS_OF_KNOWN is `fields` (`fieldFor` of its text when it is no word of the format). */
 function fieldOfWord(section: SectionId, fields: readonly (FieldDef | null)[], word: Word): FieldDef | null {
@@ -310,6 +320,7 @@ function parseLineUnsafe(text: string, line: number, source = text, base = 0): L
   // A note line's prose is not read as words: what follows reads only its first two.
   if (section?.id !== 'note') chunks = moreWordsOf(FORMAT_WORDS);
   const doubledComma = LEXED.doubledComma;
+  const digitAfterComma = LEXED.digitAfterComma;
   // The words of a line are reused for the next line: what the tree keeps is copied (`keep`), and a
   // section word at the start of its line is one token shared by every such line.
   const sectionToken: Token = section ? lineStartToken(first) : keep(first);
@@ -341,7 +352,7 @@ function parseLineUnsafe(text: string, line: number, source = text, base = 0): L
     const last = chunks[chunks.length - 1]!;
     if (body.charCodeAt(last.end - 1) === 0x2e /* . */) leaveOutFullStop(chunks, issues);
   }
-  const items = parseItems(section.id, chunks, 1, issues, text);
+  const items = parseItems(section.id, chunks, 1, issues, text, digitAfterComma);
   return new SectionNode(line, text, comment, section.id, sectionToken, items, null, keptIssues(issues));
 }
 
@@ -1174,7 +1185,12 @@ let NUMBER_LENGTH = 0;
 /** What implies an item's key (index 0: the key is written), and the flag of a decimal comma, kept in one number. */
 const IMPLIED: readonly ItemNode['implied'][] = [null, 'shorthand', 'device', 'device-flow', 'bracketed-mean'];
 const IMPLIED_MASK = 7;
+/** The indexes of IMPLIED, which items are made with. */
+const WRITTEN = 0;
 const SHORTHAND = 1;
+const DEVICE = 2;
+const DEVICE_FLOW = 3;
+const BRACKETED_MEAN = 4;
 const DECIMAL_COMMA = 8;
 /** An item's flags take values below this; where its number ends is kept above them (see `Item.packed`). */
 const FLAG_VALUES = 16;
@@ -1217,7 +1233,8 @@ class Item implements ItemNode, Span {
   constructor(
     keyText: string | null,
     keyName: string,
-    implied: ItemNode['implied'],
+    /** What implies the key: an index of IMPLIED. */
+    implied: number,
     readonly field: FieldDef | null,
     other: PairValue | WordValue | null,
     source: string,
@@ -1227,8 +1244,8 @@ class Item implements ItemNode, Span {
     unit: Located | null,
     readonly start: number,
   ) {
-    this.name = implied === null && keyText !== null ? keyText : keyName;
-    this.packed = numEnd * FLAG_VALUES + (IMPLIED.indexOf(implied) | (numComma ? DECIMAL_COMMA : 0));
+    this.name = implied === WRITTEN && keyText !== null ? keyText : keyName;
+    this.packed = numEnd * FLAG_VALUES + (implied | (numComma ? DECIMAL_COMMA : 0));
     this.ref = num === null ? other : source;
     this.num = num === null ? null : compact(num);
     this.unitText = unit?.text ?? null;
@@ -1422,7 +1439,7 @@ function bracketedMean(source: string, section: SectionId): Item | null {
   const field = fieldFor(section, 'map') ?? null;
   if (field === null) return null;
   const unit = BRACKET.unitStart < 0 ? null : token(source.slice(BRACKET.unitStart, BRACKET.unitEnd), BRACKET.unitStart, BRACKET.unitEnd);
-  return numberItem(null, 'map', 'bracketed-mean', field, source, BRACKET.value, BRACKET.numEnd, BRACKET.comma, unit, BRACKET.numStart);
+  return numberItem(null, 'map', BRACKETED_MEAN, field, source, BRACKET.value, BRACKET.numEnd, BRACKET.comma, unit, BRACKET.numStart);
 }
 
 /** How many chunks `chunksThrough` counted last (read right after the call, as UNIT_CHUNKS is). */
@@ -1479,12 +1496,12 @@ function misplacedBracketIssue(source: string, open: number, end: number): Synta
 }
 
 /** An item whose value is a pair, a word or nothing. */
-function otherItem(keyText: string | null, keyName: string, implied: ItemNode['implied'], field: FieldDef | null, value: PairValue | WordValue | null, unit: Located | null, start: number): Item {
+function otherItem(keyText: string | null, keyName: string, implied: number, field: FieldDef | null, value: PairValue | WordValue | null, unit: Located | null, start: number): Item {
   return new Item(keyText, keyName, implied, field, value, '', null, 0, false, unit, start);
 }
 
 /** An item whose value is the number `value` written up to `numEnd` of `source` (see `Item.numStart`). */
-function numberItem(keyText: string | null, keyName: string, implied: ItemNode['implied'], field: FieldDef | null, source: string, value: number, numEnd: number, comma: boolean, unit: Located | null, start: number): Item {
+function numberItem(keyText: string | null, keyName: string, implied: number, field: FieldDef | null, source: string, value: number, numEnd: number, comma: boolean, unit: Located | null, start: number): Item {
   return new Item(keyText, keyName, implied, field, null, source, value, numEnd, comma, unit, start);
 }
 
@@ -1835,8 +1852,11 @@ function keyRead(items: readonly (Item | undefined)[], count: number, key: strin
   return false;
 }
 
-/** `source` is the text of the line (spans and numbers' texts refer to it). */
-function parseItems(section: SectionId, chunks: readonly Word[], start: number, issues: SyntaxIssue[], source: string): readonly ItemNode[] {
+/**
+ * `source` is the text of the line (spans and numbers' texts refer to it). `digitAfterComma`: whether
+ * the lexer saw a digit right after a comma in it (`LEXED`), without which no number has a decimal comma.
+ */
+function parseItems(section: SectionId, chunks: readonly Word[], start: number, issues: SyntaxIssue[], source: string, digitAfterComma: boolean): readonly ItemNode[] {
   let i = start;
   const n = chunks.length;
   /** Where the line's words end (before a comment, and before a full stop left out at its end). */
@@ -1869,7 +1889,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
           const end = compact(p[4 * k + 2]!);
           const known = SHORTHAND_KNOWN[k]!;
           const field = known >= 0 ? fields[known] ?? null : fieldFor(section, keyName) ?? null;
-          items[count++] = new Item(null, keyName, 'shorthand', field, null, source, p[4 * k]!, end, p[4 * k + 3] === 1, isPressure ? unit : null, start);
+          items[count++] = new Item(null, keyName, SHORTHAND, field, null, source, p[4 * k]!, end, p[4 * k + 3] === 1, isPressure ? unit : null, start);
         }
       }
     }
@@ -1884,7 +1904,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
     if (dev) {
       i = start + dev.used;
       const value: WordValue = new WordNode(dev.text, dev.span);
-      items[count++] = otherItem(null, 'device', 'device', fieldFor(section, 'device') ?? null, value, null, dev.span.start);
+      items[count++] = otherItem(null, 'device', DEVICE, fieldFor(section, 'device') ?? null, value, null, dev.span.start);
       const next = chunks[i];
       if (next && !next.afterComma) {
         const length = numberChunk(next);
@@ -1899,7 +1919,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
           const highFlow = deviceWord !== 'cpap' && deviceWord !== 'venturi' && isHighFlowDevice(section, dev.text);
           const percent = highFlow && isPercent(unit);
           const keyName = deviceWord === 'cpap' ? 'level' : deviceWord === 'venturi' ? venturiNumberKey(number, unit) : percent ? 'fio2' : 'flow';
-          items[count++] = numberItem(null, keyName, 'device-flow', fieldFor(section, keyName) ?? null, source, number, next.start + length, comma, unit, next.start);
+          items[count++] = numberItem(null, keyName, DEVICE_FLOW, fieldFor(section, keyName) ?? null, source, number, next.start + length, comma, unit, next.start);
           if (!highFlow && deviceWord !== 'venturi') afterDeviceNumber = i;
           // A bare number of a Venturi setting (`venturi 28`), read as the FiO2 in % and said (PN321)
           // once what follows it is known: a flow after it (`venturi 28 8 L/min`) changes its fixes.
@@ -1919,7 +1939,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
               if (secondUnit !== null && isPercent(secondUnit) !== (keyName === 'fio2')) {
                 i += 1 + UNIT_CHUNKS;
                 const secondKey = keyName === 'fio2' ? 'flow' : 'fio2';
-                const other = numberItem(null, secondKey, 'device-flow', fieldFor(section, secondKey) ?? null, source, secondNumber, second!.start + secondLength, secondComma, secondUnit, second!.start);
+                const other = numberItem(null, secondKey, DEVICE_FLOW, fieldFor(section, secondKey) ?? null, source, secondNumber, second!.start + secondLength, secondComma, secondUnit, second!.start);
                 items[count++] = other;
                 if (secondKey === 'flow') flowAfter = other;
               }
@@ -1938,7 +1958,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
               if (isPercent(secondUnit) !== percent) {
                 i += 1 + UNIT_CHUNKS;
                 const secondKey = percent ? 'flow' : 'fio2';
-                other = numberItem(null, secondKey, 'device-flow', fieldFor(section, secondKey) ?? null, source, secondNumber, second!.start + secondLength, secondComma, secondUnit, second!.start);
+                other = numberItem(null, secondKey, DEVICE_FLOW, fieldFor(section, secondKey) ?? null, source, secondNumber, second!.start + secondLength, secondComma, secondUnit, second!.start);
                 items[count++] = other;
               }
             }
@@ -2076,7 +2096,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
             if (found !== NO_BRACKET && (found !== CLOSED || fieldFor(section, 'map') !== undefined)) {
               if (twoWords) unit = token(source.slice(unit!.start, open), unit!.start, open);
               else if (unit !== null && cut >= 0) unit = cut === 0 ? null : token(unit.text.slice(0, cut), unit.start, open);
-              items[count++] = otherItem(key.text, key.text, null, field, value, unit, key.start);
+              items[count++] = otherItem(key.text, key.text, WRITTEN, field, value, unit, key.start);
               const mean = found === CLOSED ? bracketedMean(source, section) : null;
               if (mean !== null) items[count++] = mean;
               const end = chunksThrough(chunks, i, BRACKET.end);
@@ -2092,7 +2112,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
           i++;
           unit = unitAfter(gluedUnit(next, length), chunks, i, section, source);
           i += UNIT_CHUNKS;
-          items[count++] = numberItem(key.text, key.text, null, field, source, number, next.start + length, comma, unit, key.start);
+          items[count++] = numberItem(key.text, key.text, WRITTEN, field, source, number, next.start + length, comma, unit, key.start);
           if (field?.kind === 'pair') {
             // `bp 120`: a key that takes two numbers with one; nothing would be read from it.
             issues.push({ check: 'missing-value', span: { start: key.start, end: next.start + length }, message: `\`${key.text}\` takes two numbers joined by a slash (\`${key.text} 120/80\`); \`${next.text.slice(0, length)}\` is one, so it is not read.`, fixes: NONE });
@@ -2107,11 +2127,11 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
     if (!value && field !== null) {
       issues.push({ check: 'missing-value', span: key.span, message: `\`${key.text}\` has no value.`, fixes: NONE });
     }
-    items[count++] = otherItem(key.text, key.text, null, field, value, unit, key.start);
+    items[count++] = otherItem(key.text, key.text, WRITTEN, field, value, unit, key.start);
   }
 
   // Decimal commas anywhere in the line's numbers (few lines have one: asked of each item without building its number).
-  for (let k = 0; k < count; k++) {
+  for (let k = 0; digitAfterComma && k < count; k++) {
     const item = items[k]!;
     if (!item.hasDecimalComma()) continue;
     const value = item.value;
