@@ -12,13 +12,19 @@ import { isBlank } from './blanks';
  * so a chunk kept as a token in the tree is one object, not two: a big note has one per word.
  */
 export class Chunk implements Span {
-  constructor(
-    readonly text: string,
-    readonly start: number,
-    readonly end: number,
-    /** A comma separated this chunk from the previous one. */
-    readonly afterComma: boolean,
-  ) {}
+  // Declared, not class fields, as the parser's nodes are (see `BlankNode` in parser.ts).
+  declare readonly text: string;
+  declare readonly start: number;
+  declare readonly end: number;
+  /** A comma separated this chunk from the previous one. */
+  declare readonly afterComma: boolean;
+
+  constructor(text: string, start: number, end: number, afterComma: boolean) {
+    this.text = text;
+    this.start = start;
+    this.end = end;
+    this.afterComma = afterComma;
+  }
 
   get span(): Span {
     return this;

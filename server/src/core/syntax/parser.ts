@@ -258,34 +258,91 @@ function readLine(text: string, line: number, source = text, base = 0): LineNode
 /**
  * Line nodes are made by constructors, not object literals: the tree keeps every one, and V8 would
  * pretenure a literal's allocation site whose objects all survive (see `PlainFinding` in check-note.ts).
+ *
+ * The kinds of object the parser makes by the thousand (line nodes, items, values, tokens) have their
+ * fields declared with `declare` and set in the constructor, in the order they always had (`kind`
+ * last on a line node): a field declared otherwise is a class field (the build targets ES2022), which
+ * each `new` first defines as undefined, by a call of its own, before the constructor sets it.
  */
 class BlankNode implements BlankLine {
-  readonly kind = 'blank' as const;
-  constructor(readonly line: number, readonly text: string, readonly comment: Token | null, readonly issues: readonly SyntaxIssue[]) {}
+  declare readonly line: number;
+  declare readonly text: string;
+  declare readonly comment: Token | null;
+  declare readonly issues: readonly SyntaxIssue[];
+  declare readonly kind: 'blank';
+  constructor(line: number, text: string, comment: Token | null, issues: readonly SyntaxIssue[]) {
+    this.line = line;
+    this.text = text;
+    this.comment = comment;
+    this.issues = issues;
+    this.kind = 'blank';
+  }
 }
 
 class SectionNode implements SectionLine {
-  readonly kind = 'section' as const;
+  declare readonly line: number;
+  declare readonly text: string;
+  declare readonly comment: Token | null;
+  declare readonly section: SectionId;
+  declare readonly sectionToken: Token;
+  declare readonly items: readonly ItemNode[];
+  declare readonly prose: Token | null;
+  declare readonly issues: readonly SyntaxIssue[];
+  declare readonly kind: 'section';
   constructor(
-    readonly line: number, readonly text: string, readonly comment: Token | null, readonly section: SectionId,
-    readonly sectionToken: Token, readonly items: readonly ItemNode[], readonly prose: Token | null, readonly issues: readonly SyntaxIssue[],
-  ) {}
+    line: number, text: string, comment: Token | null, section: SectionId,
+    sectionToken: Token, items: readonly ItemNode[], prose: Token | null, issues: readonly SyntaxIssue[],
+  ) {
+    this.line = line;
+    this.text = text;
+    this.comment = comment;
+    this.section = section;
+    this.sectionToken = sectionToken;
+    this.items = items;
+    this.prose = prose;
+    this.issues = issues;
+    this.kind = 'section';
+  }
 }
 
 class UnknownNode implements UnknownLine {
-  readonly kind = 'unknown' as const;
-  constructor(
-    readonly line: number, readonly text: string, readonly comment: Token | null, readonly first: Token,
-    readonly rest: Token | null, readonly issues: readonly SyntaxIssue[],
-  ) {}
+  declare readonly line: number;
+  declare readonly text: string;
+  declare readonly comment: Token | null;
+  declare readonly first: Token;
+  declare readonly rest: Token | null;
+  declare readonly issues: readonly SyntaxIssue[];
+  declare readonly kind: 'unknown';
+  constructor(line: number, text: string, comment: Token | null, first: Token, rest: Token | null, issues: readonly SyntaxIssue[]) {
+    this.line = line;
+    this.text = text;
+    this.comment = comment;
+    this.first = first;
+    this.rest = rest;
+    this.issues = issues;
+    this.kind = 'unknown';
+  }
 }
 
 class TimepointNode implements TimepointLine {
-  readonly kind = 'timepoint' as const;
-  constructor(
-    readonly line: number, readonly text: string, readonly comment: Token | null, readonly marker: Token,
-    readonly time: TimeSpec | null, readonly label: Token | null, readonly issues: readonly SyntaxIssue[],
-  ) {}
+  declare readonly line: number;
+  declare readonly text: string;
+  declare readonly comment: Token | null;
+  declare readonly marker: Token;
+  declare readonly time: TimeSpec | null;
+  declare readonly label: Token | null;
+  declare readonly issues: readonly SyntaxIssue[];
+  declare readonly kind: 'timepoint';
+  constructor(line: number, text: string, comment: Token | null, marker: Token, time: TimeSpec | null, label: Token | null, issues: readonly SyntaxIssue[]) {
+    this.line = line;
+    this.text = text;
+    this.comment = comment;
+    this.marker = marker;
+    this.time = time;
+    this.label = label;
+    this.issues = issues;
+    this.kind = 'timepoint';
+  }
 }
 
 /** The same line node at another line number (lines moved by an edit above them). */
@@ -336,7 +393,7 @@ function parseLineUnsafe(text: string, line: number, source = text, base = 0): L
   }
   if (section.id === 'note') {
     const proseStart = chunks[1]?.start;
-    const prose: Token | null = proseStart === undefined ? null : new CutToken(body, proseStart, proseEnd(body));
+    const prose: Token | null = proseStart === undefined ? null : new Cut(body, proseStart, proseEnd(body));
     // Commas inside the prose are prose; one before it separates nothing.
     let noteIssues: readonly SyntaxIssue[] = NONE;
     if (first.afterComma || chunks[1]?.afterComma || commaAfterLoneWord(body, chunks)) {
@@ -612,7 +669,7 @@ function parseTimepoint(body: string, chunks: Word[], line: number, text: string
   }
   const labelEnd = l0 ? proseEnd(body) : 0;
   // Cut from the line when read (one object rather than a token and its text): the timeline reads it once.
-  const label: Token | null = l0 ? new CutToken(body, l0.start, labelEnd) : null;
+  const label: Token | null = l0 ? new Cut(body, l0.start, labelEnd) : null;
   return new TimepointNode(line, text, comment, marker, time, label, keptIssues(issues));
 }
 
@@ -653,12 +710,16 @@ function proseEnd(body: string): number {
  * tens of thousands, most of whose texts are never read, and each is one object rather than
  * an object, a span and a string.
  */
-class Cut implements Span {
-  constructor(
-    readonly source: string,
-    readonly start: number,
-    readonly end: number,
-  ) {}
+class Cut implements Token {
+  declare readonly source: string;
+  declare readonly start: number;
+  declare readonly end: number;
+
+  constructor(source: string, start: number, end: number) {
+    this.source = source;
+    this.start = start;
+    this.end = end;
+  }
 
   get span(): Span {
     return this;
@@ -669,20 +730,18 @@ class Cut implements Span {
   }
 }
 
-/** A token cut from its line (a note line's prose). */
-class CutToken extends Cut implements Token {}
 
 /** The time of a timepoint line. */
 class TimeNode extends Cut implements TimeSpec {
-  constructor(
-    readonly kind: TimeSpec['kind'],
-    readonly day: number | null,
-    readonly minutes: number | null,
-    source: string,
-    start: number,
-    end: number,
-  ) {
+  declare readonly kind: TimeSpec['kind'];
+  declare readonly day: number | null;
+  declare readonly minutes: number | null;
+
+  constructor(kind: TimeSpec['kind'], day: number | null, minutes: number | null, source: string, start: number, end: number) {
     super(source, start, end);
+    this.kind = kind;
+    this.day = day;
+    this.minutes = minutes;
   }
 }
 
@@ -841,8 +900,15 @@ interface Located {
 
 /** A word value (a mode, a device): made by a constructor, as line nodes are. */
 class WordNode implements WordValue {
-  readonly kind = 'word' as const;
-  constructor(readonly text: string, readonly span: Span) {}
+  declare readonly text: string;
+  declare readonly span: Span;
+  declare readonly kind: 'word';
+
+  constructor(text: string, span: Span) {
+    this.text = text;
+    this.span = span;
+    this.kind = 'word';
+  }
 }
 
 /** A token that is its own span (one object, not two): a chunk no comma came before. */
@@ -852,14 +918,13 @@ function token(text: string, start: number, end: number): Chunk {
 
 /** A number as written (cut from its line when its text is asked for; few numbers' texts ever are). */
 class NumberNode extends Cut implements NumberValue {
-  constructor(
-    source: string,
-    readonly value: number,
-    start: number,
-    end: number,
-    readonly decimalComma: boolean,
-  ) {
+  declare readonly value: number;
+  declare readonly decimalComma: boolean;
+
+  constructor(source: string, value: number, start: number, end: number, decimalComma: boolean) {
     super(source, start, end);
+    this.value = value;
+    this.decimalComma = decimalComma;
   }
 
   /** On the class, not on each number. */
@@ -1110,7 +1175,7 @@ function readSpacedGroup(chunks: readonly Word[], i: number, source: string, mea
  */
 class PairNode extends Cut implements PairValue {
   /** How many numbers (times 2), plus 1 when one has a decimal comma. */
-  private readonly flags: number;
+  declare private readonly flags: number;
 
   constructor(source: string, start: number, end: number, count: number, decimalComma: boolean) {
     super(source, start, end);
@@ -1208,42 +1273,46 @@ const FLAG_VALUES = 16;
  */
 class Item implements ItemNode, Span {
   /** The key as written, or for an implied key the key it stands for (see `flags`). */
-  private readonly name: string;
+  declare private readonly name: string;
   /**
    * The item's flags (what implied the key, an index into IMPLIED, 0: written; plus DECIMAL_COMMA),
    * plus FLAG_VALUES times where a number value ends (0 for none): one field for the two, a field
    * less on each item. Read by arithmetic, not bit operations, so a line longer than 2^28 (where the
    * sum leaves the 31-bit range) still reads right.
    */
-  private readonly packed: number;
+  declare private readonly packed: number;
   /**
    * A pair or word value, or for a number value (kept flat below) the line the number is on (a
    * string: see `other`, `source`); null for no value. One field for the two, as an item has only
    * one of them: a field less on each of the tens of thousands of items a big note keeps.
    */
-  private readonly ref: PairValue | WordValue | string | null;
+  declare private readonly ref: PairValue | WordValue | string | null;
   /**
    * The number value (null: none) and where it is. `num` may hold null, so a whole number is kept
    * in the item itself rather than in a box of its own (as a field that only ever holds numbers would keep it).
    */
-  private readonly num: number | null;
-  readonly unitText: string | null;
-  private readonly unitStart: number;
+  declare private readonly num: number | null;
+  declare readonly unitText: string | null;
+  declare private readonly unitStart: number;
+  declare readonly field: FieldDef | null;
+  declare readonly start: number;
 
   constructor(
     keyText: string | null,
     keyName: string,
     /** What implies the key: an index of IMPLIED. */
     implied: number,
-    readonly field: FieldDef | null,
+    field: FieldDef | null,
     other: PairValue | WordValue | null,
     source: string,
     num: number | null,
     numEnd: number,
     numComma: boolean,
     unit: Located | null,
-    readonly start: number,
+    start: number,
   ) {
+    this.field = field;
+    this.start = start;
     this.name = implied === WRITTEN && keyText !== null ? keyText : keyName;
     this.packed = numEnd * FLAG_VALUES + (implied | (numComma ? DECIMAL_COMMA : 0));
     this.ref = num === null ? other : source;
