@@ -12,13 +12,19 @@ import { isBlank } from './blanks';
  * so a chunk kept as a token in the tree is one object, not two: a big note has one per word.
  */
 export class Chunk implements Span {
-  constructor(
-    readonly text: string,
-    readonly start: number,
-    readonly end: number,
-    /** A comma separated this chunk from the previous one. */
-    readonly afterComma: boolean,
-  ) {}
+  // Declared, not class fields, as the parser's nodes are (see `BlankNode` in parser.ts).
+  declare readonly text: string;
+  declare readonly start: number;
+  declare readonly end: number;
+  /** A comma separated this chunk from the previous one. */
+  declare readonly afterComma: boolean;
+
+  constructor(text: string, start: number, end: number, afterComma: boolean) {
+    this.text = text;
+    this.start = start;
+    this.end = end;
+    this.afterComma = afterComma;
+  }
 
   get span(): Span {
     return this;
@@ -131,6 +137,9 @@ const ASCII_KIND: Uint8Array = (() => {
   return kinds;
 })();
 
+/** More words than any line holds (its characters are fewer), as a whole number. */
+const MOST_WORDS = 0x3fffffff;
+
 /** Words reused from line to line, by their place in the line; a line longer than this gets words of its own beyond it. */
 const POOL: Word[] = [];
 const POOL_LIMIT = 4096;
@@ -154,10 +163,12 @@ let heldCount = 0;
  * What `wordsOf` saw of the line besides its words: whether two commas came with no word
  * between them (`hr 80,, rr 18`, also before the first word or after the last). One record for
  * every line, read right after the call: few lines have such commas, and the parser looks for
- * them only then. And where `wordsOf` stopped reading, given a `max` it reached before the end of
- * the line (-1: at the end), for `moreWordsOf` to read on from.
+ * them only then; whether a digit came right after a comma (`7,35`, `,5`): a number read from the
+ * line can have a decimal comma only then, and the parser looks for one only then. And where
+ * `wordsOf` stopped reading, given a `max` it reached before the end of the line (-1: at the end),
+ * for `moreWordsOf` to read on from.
  */
-export const LEXED: { doubledComma: boolean; stoppedAt: number } = { doubledComma: false, stoppedAt: -1 };
+export const LEXED: { doubledComma: boolean; digitAfterComma: boolean; stoppedAt: number } = { doubledComma: false, digitAfterComma: false, stoppedAt: -1 };
 
 /**
  * Lets go of the texts the words handed out since the last call still hold (a word's text may be a
@@ -208,6 +219,7 @@ export function wordsOf(body: string, from = 0, vocabulary?: Vocabulary, max = I
  */
 export function wordsIn(source: string, base: number, length: number, vocabulary?: Vocabulary, max = Infinity, from = 0): Word[] {
   LEXED.doubledComma = false;
+  LEXED.digitAfterComma = false;
   handedCount = 0;
   lineSource = source;
   lineBase = base;
@@ -229,6 +241,8 @@ export function moreWordsOf(vocabulary?: Vocabulary, max = Infinity): Word[] {
  * `lineSource`) after the `handedCount` words already in LIST, until `max` in all.
  */
 function lexFrom(from: number, vocabulary: Vocabulary | undefined, max: number): Word[] {
+  // A whole number (no limit is `Infinity`, a floating-point number: compared with it, every word's count would be too).
+  const most = max < MOST_WORDS ? max | 0 : MOST_WORDS;
   const words = LIST;
   const body = lineSource;
   const base = lineBase;
@@ -237,12 +251,13 @@ function lexFrom(from: number, vocabulary: Vocabulary | undefined, max: number):
   let i = from;
   let sawComma = false;
   LEXED.stoppedAt = -1;
-  while (i < n && count < max) {
+  while (i < n && count < most) {
     const c = body.charCodeAt(i);
     const kind = c < 0x80 ? ASCII_KIND[c]! : isBlank(c) ? BLANK : 0;
     if (kind === BLANK) { i++; continue; }
     if (kind === COMMA) {
       if (sawComma) LEXED.doubledComma = true;
+      if (i + 1 < n && isDigit(body.charCodeAt(i + 1))) LEXED.digitAfterComma = true;
       sawComma = true;
       i++;
       continue;
@@ -255,6 +270,7 @@ function lexFrom(from: number, vocabulary: Vocabulary | undefined, max: number):
       if (dKind === BLANK) break;
       // A comma between two digits stays in its word (a decimal comma); the word has a character before it.
       if (!(isDigit(body.charCodeAt(i - 1)) && i + 1 < n && isDigit(body.charCodeAt(i + 1)))) break;
+      LEXED.digitAfterComma = true;
     }
     let known = -1;
     let text: string | null = null;

@@ -117,42 +117,63 @@ const VOCABULARY: ReadonlyMap<string, string> = (() => {
   return words;
 })();
 
-/** The longest word `knownIndex` looks up: no word of the format is longer. */
-const INTERNED_LENGTH = 12;
-
 /** The words of VOCABULARY in a list: a word of a line that is one of them knows its index (`Word.known`). */
 const VOCABULARY_WORDS: readonly string[] = [...VOCABULARY.keys()];
 
 /**
- * The indexes of the words of VOCABULARY that start with a letter and are at most INTERNED_LENGTH
- * long, by their length and first character (`length * 128 + code`): a word of a line is looked up
- * among the few of its length and first letter in place, without cutting it out of its line first.
+ * The words of VOCABULARY as a trie over their characters, in which `knownIndex` looks up a word of
+ * a line by reading each of its characters once, in place (it is not cut out of its line first),
+ * and stops at the first that no word of the format has there: a number at its first digit.
+ * `TRIE_NEXT[state * TRIE_WIDTH + TRIE_CLASS[c]]` is the state after the character `c` (0: no word
+ * goes on so, and no character leaves state 0); `TRIE_CLASS` numbers the characters the words use
+ * from 1 (0 for any other ASCII character); `TRIE_WORD[state]` is the index of the word that ends
+ * there, or -1. Only words all of whose characters are ASCII are in it: a word of the format with
+ * another (`°C`, `°F`) is not known, and a word of a line written so is read as any other word is
+ * (its text cut out, its unit looked up by its spelling).
  */
-const VOCABULARY_BY_START: readonly (readonly number[] | undefined)[] = (() => {
-  const table: number[][] = [];
+const TRIE_ROOT = 1;
+const TRIE_CLASS = new Uint8Array(0x80);
+const { TRIE_WIDTH, TRIE_NEXT, TRIE_WORD } = (() => {
+  let width = 1;
+  for (const w of VOCABULARY_WORDS) {
+    if (!isAscii(w)) continue;
+    for (let k = 0; k < w.length; k++) if (TRIE_CLASS[w.charCodeAt(k)] === 0) TRIE_CLASS[w.charCodeAt(k)] = width++;
+  }
+  const next: number[] = [];
+  const word = [-1, -1];
   VOCABULARY_WORDS.forEach((w, index) => {
-    if (w.length > INTERNED_LENGTH || !startsWithAsciiLetter(w.charCodeAt(0))) return;
-    (table[w.length * 128 + w.charCodeAt(0)] ??= []).push(index);
+    if (!isAscii(w)) return;
+    let state = TRIE_ROOT;
+    for (let k = 0; k < w.length; k++) {
+      const at = state * width + TRIE_CLASS[w.charCodeAt(k)]!;
+      if (next[at] === undefined) {
+        next[at] = word.length;
+        word.push(-1);
+      }
+      state = next[at]!;
+    }
+    word[state] = index;
   });
-  return table;
+  const table = new Uint16Array(word.length * width);
+  next.forEach((to, at) => { table[at] = to; });
+  return { TRIE_WIDTH: width, TRIE_NEXT: table, TRIE_WORD: Int16Array.from(word) };
 })();
 
-function startsWithAsciiLetter(c: number): boolean {
-  const lower = c | 0x20;
-  return lower >= 0x61 && lower <= 0x7a;
+function isAscii(word: string): boolean {
+  for (let k = 0; k < word.length; k++) if (word.charCodeAt(k) >= 0x80) return false;
+  return true;
 }
 
 /** The index in VOCABULARY_WORDS of the word of the format `[start, end)` of `body` is, or -1 when it is none. */
 function knownIndex(body: string, start: number, end: number): number {
-  // Numbers are never words of the format: only words that start with a letter are looked up.
-  const c = body.charCodeAt(start);
-  if (end - start <= INTERNED_LENGTH && startsWithAsciiLetter(c)) {
-    const candidates = VOCABULARY_BY_START[(end - start) * 128 + c];
-    if (candidates !== undefined) {
-      for (let k = 0; k < candidates.length; k++) if (restMatches(body, start, VOCABULARY_WORDS[candidates[k]!]!)) return candidates[k]!;
-    }
+  let state = TRIE_ROOT;
+  for (let k = start; k < end; k++) {
+    const c = body.charCodeAt(k);
+    if (c >= 0x80) return -1;
+    state = TRIE_NEXT[state * TRIE_WIDTH + TRIE_CLASS[c]!]!;
+    if (state === 0) return -1;
   }
-  return -1;
+  return TRIE_WORD[state]!;
 }
 
 /** The words of the format as the lexer looks them up (see `Vocabulary`). */
@@ -167,10 +188,20 @@ const SECTION_OF_KNOWN: readonly (SectionDef | null)[] = VOCABULARY_WORDS.map((w
 const UNIT_KNOWN: readonly boolean[] = VOCABULARY_WORDS.map((w) => isKnownUnitSpelling(w));
 const FIELDS_OF_KNOWN: ReadonlyMap<SectionId, readonly (FieldDef | null)[]> = new Map(SECTIONS.map((s) => [s.id, VOCABULARY_WORDS.map((w) => fieldFor(s.id, w) ?? null)] as const));
 
-/** The fields of a section's keys by the index of the word (a row of FIELDS_OF_KNOWN). */
+/**
+ * The fields of a section's keys by the index of the word (a row of FIELDS_OF_KNOWN). Asked for
+ * each line and each unit read: the row of the section asked last is kept (a one-entry memo).
+ */
 function knownFieldsOf(section: SectionId): readonly (FieldDef | null)[] {
-  return FIELDS_OF_KNOWN.get(section) ?? NONE;
+  if (section !== LAST_FIELDS_SECTION) {
+    LAST_FIELDS = FIELDS_OF_KNOWN.get(section) ?? NONE;
+    LAST_FIELDS_SECTION = section;
+  }
+  return LAST_FIELDS;
 }
+
+let LAST_FIELDS_SECTION: SectionId | null = null;
+let LAST_FIELDS: readonly (FieldDef | null)[] = NONE;
 
 /** The field a word is the key of in `section`, whose row of FIELDS_OF_KNOWN is `fields` (`fieldFor` of its text when it is no word of the format). */
 function fieldOfWord(section: SectionId, fields: readonly (FieldDef | null)[], word: Word): FieldDef | null {
@@ -180,16 +211,6 @@ function fieldOfWord(section: SectionId, fields: readonly (FieldDef | null)[], w
 /** Whether a word is a unit the format knows (`isKnownUnitSpelling`, looked up once for a word of the format). */
 function isUnitWord(word: Word): boolean {
   return word.known >= 0 ? UNIT_KNOWN[word.known]! : isKnownUnitSpelling(word.text);
-}
-
-/**
- * Whether `word` is written at `start` of `body`, its length and first character known to match:
- * compared in place, which for words this short costs less than a call of `startsWith` (the lexer
- * asks for every word of a note: 0.2 of 2.9 ms on generateNote(2000)).
- */
-function restMatches(body: string, start: number, word: string): boolean {
-  for (let k = 1; k < word.length; k++) if (body.charCodeAt(start + k) !== word.charCodeAt(k)) return false;
-  return true;
 }
 
 /** The section a line's first word names (`sectionByName`, which lowers a copy of the word, asked once per word of the format). */
@@ -237,34 +258,91 @@ function readLine(text: string, line: number, source = text, base = 0): LineNode
 /**
  * Line nodes are made by constructors, not object literals: the tree keeps every one, and V8 would
  * pretenure a literal's allocation site whose objects all survive (see `PlainFinding` in check-note.ts).
+ *
+ * The kinds of object the parser makes by the thousand (line nodes, items, values, tokens) have their
+ * fields declared with `declare` and set in the constructor, in the order they always had (`kind`
+ * last on a line node): a field declared otherwise is a class field (the build targets ES2022), which
+ * each `new` first defines as undefined, by a call of its own, before the constructor sets it.
  */
 class BlankNode implements BlankLine {
-  readonly kind = 'blank' as const;
-  constructor(readonly line: number, readonly text: string, readonly comment: Token | null, readonly issues: readonly SyntaxIssue[]) {}
+  declare readonly line: number;
+  declare readonly text: string;
+  declare readonly comment: Token | null;
+  declare readonly issues: readonly SyntaxIssue[];
+  declare readonly kind: 'blank';
+  constructor(line: number, text: string, comment: Token | null, issues: readonly SyntaxIssue[]) {
+    this.line = line;
+    this.text = text;
+    this.comment = comment;
+    this.issues = issues;
+    this.kind = 'blank';
+  }
 }
 
 class SectionNode implements SectionLine {
-  readonly kind = 'section' as const;
+  declare readonly line: number;
+  declare readonly text: string;
+  declare readonly comment: Token | null;
+  declare readonly section: SectionId;
+  declare readonly sectionToken: Token;
+  declare readonly items: readonly ItemNode[];
+  declare readonly prose: Token | null;
+  declare readonly issues: readonly SyntaxIssue[];
+  declare readonly kind: 'section';
   constructor(
-    readonly line: number, readonly text: string, readonly comment: Token | null, readonly section: SectionId,
-    readonly sectionToken: Token, readonly items: readonly ItemNode[], readonly prose: Token | null, readonly issues: readonly SyntaxIssue[],
-  ) {}
+    line: number, text: string, comment: Token | null, section: SectionId,
+    sectionToken: Token, items: readonly ItemNode[], prose: Token | null, issues: readonly SyntaxIssue[],
+  ) {
+    this.line = line;
+    this.text = text;
+    this.comment = comment;
+    this.section = section;
+    this.sectionToken = sectionToken;
+    this.items = items;
+    this.prose = prose;
+    this.issues = issues;
+    this.kind = 'section';
+  }
 }
 
 class UnknownNode implements UnknownLine {
-  readonly kind = 'unknown' as const;
-  constructor(
-    readonly line: number, readonly text: string, readonly comment: Token | null, readonly first: Token,
-    readonly rest: Token | null, readonly issues: readonly SyntaxIssue[],
-  ) {}
+  declare readonly line: number;
+  declare readonly text: string;
+  declare readonly comment: Token | null;
+  declare readonly first: Token;
+  declare readonly rest: Token | null;
+  declare readonly issues: readonly SyntaxIssue[];
+  declare readonly kind: 'unknown';
+  constructor(line: number, text: string, comment: Token | null, first: Token, rest: Token | null, issues: readonly SyntaxIssue[]) {
+    this.line = line;
+    this.text = text;
+    this.comment = comment;
+    this.first = first;
+    this.rest = rest;
+    this.issues = issues;
+    this.kind = 'unknown';
+  }
 }
 
 class TimepointNode implements TimepointLine {
-  readonly kind = 'timepoint' as const;
-  constructor(
-    readonly line: number, readonly text: string, readonly comment: Token | null, readonly marker: Token,
-    readonly time: TimeSpec | null, readonly label: Token | null, readonly issues: readonly SyntaxIssue[],
-  ) {}
+  declare readonly line: number;
+  declare readonly text: string;
+  declare readonly comment: Token | null;
+  declare readonly marker: Token;
+  declare readonly time: TimeSpec | null;
+  declare readonly label: Token | null;
+  declare readonly issues: readonly SyntaxIssue[];
+  declare readonly kind: 'timepoint';
+  constructor(line: number, text: string, comment: Token | null, marker: Token, time: TimeSpec | null, label: Token | null, issues: readonly SyntaxIssue[]) {
+    this.line = line;
+    this.text = text;
+    this.comment = comment;
+    this.marker = marker;
+    this.time = time;
+    this.label = label;
+    this.issues = issues;
+    this.kind = 'timepoint';
+  }
 }
 
 /** The same line node at another line number (lines moved by an edit above them). */
@@ -299,6 +377,7 @@ function parseLineUnsafe(text: string, line: number, source = text, base = 0): L
   // A note line's prose is not read as words: what follows reads only its first two.
   if (section?.id !== 'note') chunks = moreWordsOf(FORMAT_WORDS);
   const doubledComma = LEXED.doubledComma;
+  const digitAfterComma = LEXED.digitAfterComma;
   // The words of a line are reused for the next line: what the tree keeps is copied (`keep`), and a
   // section word at the start of its line is one token shared by every such line.
   const sectionToken: Token = section ? lineStartToken(first) : keep(first);
@@ -314,7 +393,7 @@ function parseLineUnsafe(text: string, line: number, source = text, base = 0): L
   }
   if (section.id === 'note') {
     const proseStart = chunks[1]?.start;
-    const prose: Token | null = proseStart === undefined ? null : new CutToken(body, proseStart, proseEnd(body));
+    const prose: Token | null = proseStart === undefined ? null : new Cut(body, proseStart, proseEnd(body));
     // Commas inside the prose are prose; one before it separates nothing.
     let noteIssues: readonly SyntaxIssue[] = NONE;
     if (first.afterComma || chunks[1]?.afterComma || commaAfterLoneWord(body, chunks)) {
@@ -330,7 +409,7 @@ function parseLineUnsafe(text: string, line: number, source = text, base = 0): L
     const last = chunks[chunks.length - 1]!;
     if (body.charCodeAt(last.end - 1) === 0x2e /* . */) leaveOutFullStop(chunks, issues);
   }
-  const items = parseItems(section.id, chunks, 1, issues, text);
+  const items = parseItems(section.id, chunks, 1, issues, text, digitAfterComma);
   return new SectionNode(line, text, comment, section.id, sectionToken, items, null, keptIssues(issues));
 }
 
@@ -590,7 +669,7 @@ function parseTimepoint(body: string, chunks: Word[], line: number, text: string
   }
   const labelEnd = l0 ? proseEnd(body) : 0;
   // Cut from the line when read (one object rather than a token and its text): the timeline reads it once.
-  const label: Token | null = l0 ? new CutToken(body, l0.start, labelEnd) : null;
+  const label: Token | null = l0 ? new Cut(body, l0.start, labelEnd) : null;
   return new TimepointNode(line, text, comment, marker, time, label, keptIssues(issues));
 }
 
@@ -631,12 +710,16 @@ function proseEnd(body: string): number {
  * tens of thousands, most of whose texts are never read, and each is one object rather than
  * an object, a span and a string.
  */
-class Cut implements Span {
-  constructor(
-    readonly source: string,
-    readonly start: number,
-    readonly end: number,
-  ) {}
+class Cut implements Token {
+  declare readonly source: string;
+  declare readonly start: number;
+  declare readonly end: number;
+
+  constructor(source: string, start: number, end: number) {
+    this.source = source;
+    this.start = start;
+    this.end = end;
+  }
 
   get span(): Span {
     return this;
@@ -647,20 +730,18 @@ class Cut implements Span {
   }
 }
 
-/** A token cut from its line (a note line's prose). */
-class CutToken extends Cut implements Token {}
 
 /** The time of a timepoint line. */
 class TimeNode extends Cut implements TimeSpec {
-  constructor(
-    readonly kind: TimeSpec['kind'],
-    readonly day: number | null,
-    readonly minutes: number | null,
-    source: string,
-    start: number,
-    end: number,
-  ) {
+  declare readonly kind: TimeSpec['kind'];
+  declare readonly day: number | null;
+  declare readonly minutes: number | null;
+
+  constructor(kind: TimeSpec['kind'], day: number | null, minutes: number | null, source: string, start: number, end: number) {
     super(source, start, end);
+    this.kind = kind;
+    this.day = day;
+    this.minutes = minutes;
   }
 }
 
@@ -819,8 +900,15 @@ interface Located {
 
 /** A word value (a mode, a device): made by a constructor, as line nodes are. */
 class WordNode implements WordValue {
-  readonly kind = 'word' as const;
-  constructor(readonly text: string, readonly span: Span) {}
+  declare readonly text: string;
+  declare readonly span: Span;
+  declare readonly kind: 'word';
+
+  constructor(text: string, span: Span) {
+    this.text = text;
+    this.span = span;
+    this.kind = 'word';
+  }
 }
 
 /** A token that is its own span (one object, not two): a chunk no comma came before. */
@@ -830,14 +918,13 @@ function token(text: string, start: number, end: number): Chunk {
 
 /** A number as written (cut from its line when its text is asked for; few numbers' texts ever are). */
 class NumberNode extends Cut implements NumberValue {
-  constructor(
-    source: string,
-    readonly value: number,
-    start: number,
-    end: number,
-    readonly decimalComma: boolean,
-  ) {
+  declare readonly value: number;
+  declare readonly decimalComma: boolean;
+
+  constructor(source: string, value: number, start: number, end: number, decimalComma: boolean) {
     super(source, start, end);
+    this.value = value;
+    this.decimalComma = decimalComma;
   }
 
   /** On the class, not on each number. */
@@ -1088,7 +1175,7 @@ function readSpacedGroup(chunks: readonly Word[], i: number, source: string, mea
  */
 class PairNode extends Cut implements PairValue {
   /** How many numbers (times 2), plus 1 when one has a decimal comma. */
-  private readonly flags: number;
+  declare private readonly flags: number;
 
   constructor(source: string, start: number, end: number, count: number, decimalComma: boolean) {
     super(source, start, end);
@@ -1163,7 +1250,12 @@ let NUMBER_LENGTH = 0;
 /** What implies an item's key (index 0: the key is written), and the flag of a decimal comma, kept in one number. */
 const IMPLIED: readonly ItemNode['implied'][] = [null, 'shorthand', 'device', 'device-flow', 'bracketed-mean'];
 const IMPLIED_MASK = 7;
+/** The indexes of IMPLIED, which items are made with. */
+const WRITTEN = 0;
 const SHORTHAND = 1;
+const DEVICE = 2;
+const DEVICE_FLOW = 3;
+const BRACKETED_MEAN = 4;
 const DECIMAL_COMMA = 8;
 /** An item's flags take values below this; where its number ends is kept above them (see `Item.packed`). */
 const FLAG_VALUES = 16;
@@ -1181,43 +1273,48 @@ const FLAG_VALUES = 16;
  */
 class Item implements ItemNode, Span {
   /** The key as written, or for an implied key the key it stands for (see `flags`). */
-  private readonly name: string;
+  declare private readonly name: string;
   /**
    * The item's flags (what implied the key, an index into IMPLIED, 0: written; plus DECIMAL_COMMA),
    * plus FLAG_VALUES times where a number value ends (0 for none): one field for the two, a field
    * less on each item. Read by arithmetic, not bit operations, so a line longer than 2^28 (where the
    * sum leaves the 31-bit range) still reads right.
    */
-  private readonly packed: number;
+  declare private readonly packed: number;
   /**
    * A pair or word value, or for a number value (kept flat below) the line the number is on (a
    * string: see `other`, `source`); null for no value. One field for the two, as an item has only
    * one of them: a field less on each of the tens of thousands of items a big note keeps.
    */
-  private readonly ref: PairValue | WordValue | string | null;
+  declare private readonly ref: PairValue | WordValue | string | null;
   /**
    * The number value (null: none) and where it is. `num` may hold null, so a whole number is kept
    * in the item itself rather than in a box of its own (as a field that only ever holds numbers would keep it).
    */
-  private readonly num: number | null;
-  readonly unitText: string | null;
-  private readonly unitStart: number;
+  declare private readonly num: number | null;
+  declare readonly unitText: string | null;
+  declare private readonly unitStart: number;
+  declare readonly field: FieldDef | null;
+  declare readonly start: number;
 
   constructor(
     keyText: string | null,
     keyName: string,
-    implied: ItemNode['implied'],
-    readonly field: FieldDef | null,
+    /** What implies the key: an index of IMPLIED. */
+    implied: number,
+    field: FieldDef | null,
     other: PairValue | WordValue | null,
     source: string,
     num: number | null,
     numEnd: number,
     numComma: boolean,
     unit: Located | null,
-    readonly start: number,
+    start: number,
   ) {
-    this.name = implied === null && keyText !== null ? keyText : keyName;
-    this.packed = numEnd * FLAG_VALUES + (IMPLIED.indexOf(implied) | (numComma ? DECIMAL_COMMA : 0));
+    this.field = field;
+    this.start = start;
+    this.name = implied === WRITTEN && keyText !== null ? keyText : keyName;
+    this.packed = numEnd * FLAG_VALUES + (implied | (numComma ? DECIMAL_COMMA : 0));
     this.ref = num === null ? other : source;
     this.num = num === null ? null : compact(num);
     this.unitText = unit?.text ?? null;
@@ -1411,7 +1508,7 @@ function bracketedMean(source: string, section: SectionId): Item | null {
   const field = fieldFor(section, 'map') ?? null;
   if (field === null) return null;
   const unit = BRACKET.unitStart < 0 ? null : token(source.slice(BRACKET.unitStart, BRACKET.unitEnd), BRACKET.unitStart, BRACKET.unitEnd);
-  return numberItem(null, 'map', 'bracketed-mean', field, source, BRACKET.value, BRACKET.numEnd, BRACKET.comma, unit, BRACKET.numStart);
+  return numberItem(null, 'map', BRACKETED_MEAN, field, source, BRACKET.value, BRACKET.numEnd, BRACKET.comma, unit, BRACKET.numStart);
 }
 
 /** How many chunks `chunksThrough` counted last (read right after the call, as UNIT_CHUNKS is). */
@@ -1468,12 +1565,12 @@ function misplacedBracketIssue(source: string, open: number, end: number): Synta
 }
 
 /** An item whose value is a pair, a word or nothing. */
-function otherItem(keyText: string | null, keyName: string, implied: ItemNode['implied'], field: FieldDef | null, value: PairValue | WordValue | null, unit: Located | null, start: number): Item {
+function otherItem(keyText: string | null, keyName: string, implied: number, field: FieldDef | null, value: PairValue | WordValue | null, unit: Located | null, start: number): Item {
   return new Item(keyText, keyName, implied, field, value, '', null, 0, false, unit, start);
 }
 
 /** An item whose value is the number `value` written up to `numEnd` of `source` (see `Item.numStart`). */
-function numberItem(keyText: string | null, keyName: string, implied: ItemNode['implied'], field: FieldDef | null, source: string, value: number, numEnd: number, comma: boolean, unit: Located | null, start: number): Item {
+function numberItem(keyText: string | null, keyName: string, implied: number, field: FieldDef | null, source: string, value: number, numEnd: number, comma: boolean, unit: Located | null, start: number): Item {
   return new Item(keyText, keyName, implied, field, null, source, value, numEnd, comma, unit, start);
 }
 
@@ -1824,8 +1921,11 @@ function keyRead(items: readonly (Item | undefined)[], count: number, key: strin
   return false;
 }
 
-/** `source` is the text of the line (spans and numbers' texts refer to it). */
-function parseItems(section: SectionId, chunks: readonly Word[], start: number, issues: SyntaxIssue[], source: string): readonly ItemNode[] {
+/**
+ * `source` is the text of the line (spans and numbers' texts refer to it). `digitAfterComma`: whether
+ * the lexer saw a digit right after a comma in it (`LEXED`), without which no number has a decimal comma.
+ */
+function parseItems(section: SectionId, chunks: readonly Word[], start: number, issues: SyntaxIssue[], source: string, digitAfterComma: boolean): readonly ItemNode[] {
   let i = start;
   const n = chunks.length;
   /** Where the line's words end (before a comment, and before a full stop left out at its end). */
@@ -1858,7 +1958,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
           const end = compact(p[4 * k + 2]!);
           const known = SHORTHAND_KNOWN[k]!;
           const field = known >= 0 ? fields[known] ?? null : fieldFor(section, keyName) ?? null;
-          items[count++] = new Item(null, keyName, 'shorthand', field, null, source, p[4 * k]!, end, p[4 * k + 3] === 1, isPressure ? unit : null, start);
+          items[count++] = new Item(null, keyName, SHORTHAND, field, null, source, p[4 * k]!, end, p[4 * k + 3] === 1, isPressure ? unit : null, start);
         }
       }
     }
@@ -1873,7 +1973,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
     if (dev) {
       i = start + dev.used;
       const value: WordValue = new WordNode(dev.text, dev.span);
-      items[count++] = otherItem(null, 'device', 'device', fieldFor(section, 'device') ?? null, value, null, dev.span.start);
+      items[count++] = otherItem(null, 'device', DEVICE, fieldFor(section, 'device') ?? null, value, null, dev.span.start);
       const next = chunks[i];
       if (next && !next.afterComma) {
         const length = numberChunk(next);
@@ -1888,7 +1988,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
           const highFlow = deviceWord !== 'cpap' && deviceWord !== 'venturi' && isHighFlowDevice(section, dev.text);
           const percent = highFlow && isPercent(unit);
           const keyName = deviceWord === 'cpap' ? 'level' : deviceWord === 'venturi' ? venturiNumberKey(number, unit) : percent ? 'fio2' : 'flow';
-          items[count++] = numberItem(null, keyName, 'device-flow', fieldFor(section, keyName) ?? null, source, number, next.start + length, comma, unit, next.start);
+          items[count++] = numberItem(null, keyName, DEVICE_FLOW, fieldFor(section, keyName) ?? null, source, number, next.start + length, comma, unit, next.start);
           if (!highFlow && deviceWord !== 'venturi') afterDeviceNumber = i;
           // A bare number of a Venturi setting (`venturi 28`), read as the FiO2 in % and said (PN321)
           // once what follows it is known: a flow after it (`venturi 28 8 L/min`) changes its fixes.
@@ -1908,7 +2008,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
               if (secondUnit !== null && isPercent(secondUnit) !== (keyName === 'fio2')) {
                 i += 1 + UNIT_CHUNKS;
                 const secondKey = keyName === 'fio2' ? 'flow' : 'fio2';
-                const other = numberItem(null, secondKey, 'device-flow', fieldFor(section, secondKey) ?? null, source, secondNumber, second!.start + secondLength, secondComma, secondUnit, second!.start);
+                const other = numberItem(null, secondKey, DEVICE_FLOW, fieldFor(section, secondKey) ?? null, source, secondNumber, second!.start + secondLength, secondComma, secondUnit, second!.start);
                 items[count++] = other;
                 if (secondKey === 'flow') flowAfter = other;
               }
@@ -1927,7 +2027,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
               if (isPercent(secondUnit) !== percent) {
                 i += 1 + UNIT_CHUNKS;
                 const secondKey = percent ? 'flow' : 'fio2';
-                other = numberItem(null, secondKey, 'device-flow', fieldFor(section, secondKey) ?? null, source, secondNumber, second!.start + secondLength, secondComma, secondUnit, second!.start);
+                other = numberItem(null, secondKey, DEVICE_FLOW, fieldFor(section, secondKey) ?? null, source, secondNumber, second!.start + secondLength, secondComma, secondUnit, second!.start);
                 items[count++] = other;
               }
             }
@@ -2065,7 +2165,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
             if (found !== NO_BRACKET && (found !== CLOSED || fieldFor(section, 'map') !== undefined)) {
               if (twoWords) unit = token(source.slice(unit!.start, open), unit!.start, open);
               else if (unit !== null && cut >= 0) unit = cut === 0 ? null : token(unit.text.slice(0, cut), unit.start, open);
-              items[count++] = otherItem(key.text, key.text, null, field, value, unit, key.start);
+              items[count++] = otherItem(key.text, key.text, WRITTEN, field, value, unit, key.start);
               const mean = found === CLOSED ? bracketedMean(source, section) : null;
               if (mean !== null) items[count++] = mean;
               const end = chunksThrough(chunks, i, BRACKET.end);
@@ -2081,7 +2181,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
           i++;
           unit = unitAfter(gluedUnit(next, length), chunks, i, section, source);
           i += UNIT_CHUNKS;
-          items[count++] = numberItem(key.text, key.text, null, field, source, number, next.start + length, comma, unit, key.start);
+          items[count++] = numberItem(key.text, key.text, WRITTEN, field, source, number, next.start + length, comma, unit, key.start);
           if (field?.kind === 'pair') {
             // `bp 120`: a key that takes two numbers with one; nothing would be read from it.
             issues.push({ check: 'missing-value', span: { start: key.start, end: next.start + length }, message: `\`${key.text}\` takes two numbers joined by a slash (\`${key.text} 120/80\`); \`${next.text.slice(0, length)}\` is one, so it is not read.`, fixes: NONE });
@@ -2096,11 +2196,11 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
     if (!value && field !== null) {
       issues.push({ check: 'missing-value', span: key.span, message: `\`${key.text}\` has no value.`, fixes: NONE });
     }
-    items[count++] = otherItem(key.text, key.text, null, field, value, unit, key.start);
+    items[count++] = otherItem(key.text, key.text, WRITTEN, field, value, unit, key.start);
   }
 
   // Decimal commas anywhere in the line's numbers (few lines have one: asked of each item without building its number).
-  for (let k = 0; k < count; k++) {
+  for (let k = 0; digitAfterComma && k < count; k++) {
     const item = items[k]!;
     if (!item.hasDecimalComma()) continue;
     const value = item.value;
