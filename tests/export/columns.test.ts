@@ -48,6 +48,8 @@ describe('the column list', () => {
       'fio2_in_force',
       'peep_total_cmH2O',
       'autopeep_cmH2O',
+      'spo2_target_low_pct',
+      'spo2_target_high_pct',
     ]);
   });
 
