@@ -83,6 +83,16 @@ describe('the SpO2 target in force', () => {
     expect(tps[2]!.values.numberOf('o2_flow')).toBe(3);
   });
 
+  it('written twice at one timepoint, is reported as any value stated twice (PN206), and the later is used', () => {
+    const text = '@ day 1 09:00\noxygen cannula 2, target 88-92\noxygen target 94-98';
+    const f = findings(text, 'PN206');
+    expect(f.map((x) => x.message)).toEqual(['SpO2 target is stated twice at this timepoint; the later value is used.']);
+    expect(f[0]!.range.start.line).toBe(2);
+    expect(targets(text)).toEqual(['94-98']);
+    // At later timepoints a new target simply replaces the one in force.
+    expect(codes('@ day 1 09:00\noxygen cannula 2, target 88-92\n@ 10:00\noxygen target 94-98')).toEqual([]);
+  });
+
   it('comes from the spo2Target setting where the note writes none (default none), and a target written overrides it', () => {
     const note = '@ day 1 09:00\noxygen cannula 2\n@ 10:00\noxygen target 94-98';
     expect(targets(note)).toEqual([null, '94-98']);

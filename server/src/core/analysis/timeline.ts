@@ -574,7 +574,11 @@ function processBlock(lines: readonly LineNode[], start: number, end: number, in
     let upTo = to;
     if (node.section === 'oxygen' && !inHeader) {
       upTo = to > from ? targetsLast(into, from, to) : to;
-      if (upTo < to) mutable.target = new HeldValue(into[to - 1]!, index, tpLabel!, tpTime);
+      if (upTo < to) {
+        // Two targets at one timepoint: the later is used, as for any value stated twice (PN206).
+        duplicates(into, upTo, to, seenAtTimepoint, false, issues, lines, mutable.oxygen, null);
+        mutable.target = new HeldValue(into[to - 1]!, index, tpLabel!, tpTime);
+      }
       // A line of targets alone, read or not (`oxygen target 92`, PN102), leaves the therapy as it is.
       if (node.items.length > 0 && targetless(node.items).length === 0) continue;
     }
