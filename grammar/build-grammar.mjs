@@ -378,7 +378,8 @@ function unitsOfOneKey(FIELDS, UNITS, sectionId) {
   const out = [];
   for (const u of UNITS) for (const spelling of [u.id, ...u.aliases]) {
     const ids = unitsOf.get(fold(spelling));
-    const owners = FIELDS.filter((f) => f.sections.includes(sectionId) && ids.some((id) => f.units?.includes(id)));
+    // A range (`target 88-92`, `join: 'dash'`) is never one number: it owns no unit here.
+    const owners = FIELDS.filter((f) => f.sections.includes(sectionId) && f.join !== 'dash' && ids.some((id) => f.units?.includes(id)));
     if (owners.length === 1) out.push(spelling);
   }
   return out.length === 0 ? null : alt(out);
@@ -423,6 +424,20 @@ function keyValueRule(units, keys) {
     '))?',
   );
   return { comment: 'An item: a key, then its value: a number, or two numbers joined by a slash (bp 96/58), then a unit.', match: rule.regex, captures: rule.captures };
+}
+
+/**
+ * Two numbers joined by one hyphen or en dash in one chunk, the range a key whose pair is so joined
+ * takes (`target 88-92`, the field registry's `join: 'dash'`); no sign after the dash, as the parser
+ * reads it.
+ */
+const RANGE = '(?:[0-9]+(?:[.,][0-9]+)?|\\.[0-9]+)[-–](?:[0-9]+(?:[.,][0-9]+)?|\\.[0-9]+)';
+const range = { name: sc('meta.pair'), patterns: [{ include: '#range-parts' }] };
+
+/** A key that takes a range (`target 88-92`, `target 88–92 %`), its unit glued to it or after blanks. */
+function rangeRule(rangeKeys, units, keys) {
+  const rule = assemble(START, cap('variable.other.key', rangeKeys), END, '\\s+', cap(range, RANGE), groupTail(units, keys));
+  return { comment: 'A range: two numbers joined by a hyphen or an en dash (target 88-92).', match: rule.regex, captures: rule.captures };
 }
 
 /** A key that takes a pair, with the pair written with blanks around its slash (`bp 120 / 80`). */
@@ -512,7 +527,8 @@ function itemPatterns({ FIELDS, UNITS }, sectionId, units) {
   const keys = alt(keysOf(FIELDS, sectionId));
   const gas = sectionId === 'abg' || sectionId === 'vbg';
   const wordFields = FIELDS.filter((f) => f.kind === 'word' && sectionId !== null && f.sections.includes(sectionId));
-  const pairKeys = [...new Set(FIELDS.filter((f) => f.kind === 'pair' && sectionId !== null && f.sections.includes(sectionId)).flatMap((f) => f.aliases))];
+  const pairKeys = [...new Set(FIELDS.filter((f) => f.kind === 'pair' && f.join !== 'dash' && sectionId !== null && f.sections.includes(sectionId)).flatMap((f) => f.aliases))];
+  const rangeKeys = [...new Set(FIELDS.filter((f) => f.kind === 'pair' && f.join === 'dash' && sectionId !== null && f.sections.includes(sectionId)).flatMap((f) => f.aliases))];
   return [
     { include: '#comment' },
     { include: '#item-separator' },
@@ -521,6 +537,7 @@ function itemPatterns({ FIELDS, UNITS }, sectionId, units) {
     ...strayRules(gas, units, keys, unitsOfOneKey(FIELDS, UNITS, sectionId)),
     ...wordFields.map((f) => wordItemRule(f, keys)),
     ...(pairKeys.length > 0 ? [bracketedMeanRule(alt(pairKeys), units, keys), spacedPairRule(alt(pairKeys), units, keys)] : []),
+    ...(rangeKeys.length > 0 ? [rangeRule(alt(rangeKeys), units, keys)] : []),
     keyValueRule(units, keys),
   ];
 }
@@ -608,6 +625,12 @@ export function buildGrammar({ SECTIONS, FIELDS, UNITS, BLANKS }) {
       patterns: [
         { match: NUM, captures: { 0: numeric } },
         { match: '/', name: sc('punctuation.separator.pair') },
+      ],
+    },
+    'range-parts': {
+      patterns: [
+        { match: '[0-9]+(?:[.,][0-9]+)?|\\.[0-9]+', captures: { 0: numeric } },
+        { match: '[-–]', name: sc('punctuation.separator.range') },
       ],
     },
     timepoint: timepointRule(),

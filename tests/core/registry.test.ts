@@ -35,6 +35,7 @@ const fieldSchema = z
     reading: z.boolean().optional(),
     measuredIn: z.array(z.enum(['volume', 'adaptive', 'pressure', 'spontaneous', 'oscillation'])).optional(),
     setIn: z.array(z.enum(['volume', 'adaptive', 'pressure', 'spontaneous', 'oscillation'])).optional(),
+    join: z.enum(['slash', 'dash']).optional(),
     decimals: z.number().int().min(0).max(3),
   })
   .strict();

@@ -156,7 +156,8 @@ describe('CSV read back equals the analysis, value by value', () => {
             const inForce = tp.values.find((v) => v.usable && v.field === c.source);
             if (c.section !== null && inForce?.origin.line !== undefined && sectionOfLine(file.path, inForce.origin.line) !== c.section) continue;
             const v = values.get(c.source!) ?? null;
-            expected = Array.isArray(v) ? v[c.part === 'diastolic' ? 1 : 0] ?? null : v;
+            // A pair's second number is the diastolic pressure, or a range's upper end (the SpO2 target).
+            expected = Array.isArray(v) ? v[c.part === 'diastolic' || c.part === 'high' ? 1 : 0] ?? null : v;
           } else if (c.kind === 'in-force') {
             // The FiO2 the calculations used, where one of them (P/F, PiO2, S/F …) names it among its inputs.
             const used = tp.derived.flatMap((d) => d.inputs ?? []).find((i) => i.name === 'FiO2');

@@ -49,6 +49,8 @@ describe('the column list', () => {
       'peep_total_cmH2O',
       'autopeep_cmH2O',
       'sbe_mmol_L', 'sbe_venous_mmol_L',
+      'spo2_target_low_pct',
+      'spo2_target_high_pct',
     ]);
   });
 

@@ -62,6 +62,8 @@ units lines before the first @ line: they hold for the whole note); then each ti
 time, its label and its line number) with
   SECTION    each line's values, normalised, with units (the other unit system in brackets)
   carried    values in force from an earlier timepoint, with the line they were stated on
+  target     the SpO2 target the spo2Target setting gives a note that writes none (one written
+             is shown on its oxygen line, and carried as other values are)
   derived    values computed from those in force
   change     at an arterial gas, each value against the previous arterial gas (PaO2, PaCO2, pH,
              P/F; FiO2, O2 flow, PEEP, IPAP, EPAP, CPAP; the oxygen device where it changed): the

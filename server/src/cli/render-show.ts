@@ -6,6 +6,7 @@
  * and messages that quote the note) has its control characters made visible (see `visible`), so
  * that the only escape sequences written are the colours of `Paint`.
  */
+import { SPO2_TARGET_FIELD, targetInForce, targetText } from '../core/analysis/spo2-target';
 import type { NoteResult } from '../core/check-note';
 import type { StatedValue, Timepoint } from '../core/analysis/model';
 import { shortOf, formatAlternative, formatStated, describeOrigin, headerShowsKpa, showsKpa, statedInKpa } from '../core/present';
@@ -147,6 +148,9 @@ function renderTimepointFooter(tp: Timepoint, derivation: TimepointDerivation | 
     groups.set(from, list);
   }
   for (const [from, values] of groups) lines.push(`  ${p.magenta('carried'.padEnd(8))} ${values.join(p.dim(' · '))} ${p.dim(`(${from})`)}`);
+  // The setting's target, where the note writes none: the one written shows as any value does.
+  const target = tp.values.originOf(SPO2_TARGET_FIELD) === null ? targetInForce(tp.values, settings) : null;
+  if (target !== null) lines.push(`  ${p.magenta('target'.padEnd(8))} ${shortOf(SPO2_TARGET_FIELD)} ${targetText(target)} ${p.dim('(spo2Target setting)')}`);
   lines.push(...renderDerived(tp, derivation, p, legend, change));
   return lines;
 }

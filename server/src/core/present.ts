@@ -45,7 +45,7 @@ export function statedNumber(s: StatedValue, unitId?: string): string | null {
   if (field.dimension === 'age' && s.readUnit !== null && s.readUnit !== 'y' && target.id === 'y' && s.value !== null && !s.parts) return formatAgeYears(convert(s.value, canonical, target) ?? s.value);
   const decimals = Math.max(decimalsFor(target.id, field.decimals), writtenPrecisionIn(s, target));
   const show = (v: number) => formatNumber(convert(v, canonical, target) ?? v, decimals);
-  return s.parts ? s.parts.map(show).join('/') : s.value !== null ? show(s.value) : null;
+  return s.parts ? s.parts.map(show).join(field.join === 'dash' ? '–' : '/') : s.value !== null ? show(s.value) : null;
 }
 
 /** The value and unit as the note wrote them: `71 mmhgg`. */

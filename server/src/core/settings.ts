@@ -33,6 +33,12 @@ export const settingsSchema = z.object({
    * carried into a gas's derived values before PN326 reports it: 12 h, a shift (common practice, no source).
    */
   carriedSettingHours: z.number().min(1).max(168).default(12),
+  /**
+   * The SpO2 target applied to a note that writes none (`oxygen target 88-92`): `none` (the default:
+   * no target unless the note writes one), or one of the ranges in use (BTS 2017: 94–98 % for most
+   * acutely ill adults, 88–92 % at risk of hypercapnic respiratory failure; TSANZ 2015: 92–96 %).
+   */
+  spo2Target: z.enum(['none', '88-92', '92-96', '94-98']).default('none'),
   /** Hüfner constant for oxygen content (mL O2 per g Hb). */
   hufnerConstant: z.union([z.literal(1.34), z.literal(1.36), z.literal(1.39)]).default(1.34),
   /**

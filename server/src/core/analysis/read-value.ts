@@ -7,7 +7,7 @@ import { canonicalWord, fieldById, fieldFor, FIELDS, keysInSection, type FieldDe
 import { sectionById, SECTIONS, type SectionId } from '../fields/sections';
 import { convert, HB_MMOL_PER_L, unitById, UNITS, unitsForSpelling, type UnitDef } from '../fields/units';
 import type { ItemNode, LineFix, PairValue, Span } from '../syntax/tree';
-import { inchesAfterFeet, pairNumbers, thousandsReading } from '../syntax/parser';
+import { inchesAfterFeet, isDashedPair, pairNumbers, thousandsReading } from '../syntax/parser';
 import { scanNumber } from '../syntax/lexer';
 import { formatNumber, wordList } from '../util/format';
 import { closest, editDistance } from '../util/suggest';
@@ -181,6 +181,8 @@ export function readItem(item: ItemNode, section: SectionId, line: number, ctx: 
   // A pair's numbers are read again from the line when asked for: read them once, as values only.
   const pairParts = kind === 'pair' ? pairNumbers(item.value as PairValue) : null;
   if (pairParts !== null && pairParts.length !== 2) return null; // `bp 120/80/60`: reported by the syntax checks
+  // `target 88/92`, `bp 120-80`: a pair joined otherwise than its field's pairs are, reported by the syntax checks (PN102).
+  if (pairParts !== null && (field.join === 'dash') !== isDashedPair(item.value as PairValue)) return null;
   const written = kind === 'number' ? item.number! : null;
   const first = written ?? pairParts?.[0] ?? 0;
 
@@ -222,6 +224,8 @@ export function readItem(item: ItemNode, section: SectionId, line: number, ctx: 
       if (field.hard && !within(c, field.hard)) usable = false;
       parts[k] = c;
     }
+    // A range (`target 88-92`) has its lower end first and below its upper end: `92-88` or `92-92` is impossible as written (PN301).
+    if (field.join === 'dash' && isReversedRange(parts)) usable = false;
   }
 
   // `spo2 0.94`: a saturation written as a fraction, not 0.94 %; reported (PN302, with the percentage offered), not used.
@@ -249,6 +253,11 @@ export function readItem(item: ItemNode, section: SectionId, line: number, ctx: 
     }
   }
   return new Stated(field, section, line, item, value, parts, null, readUnit.id, unitImplied, unitDoubt, usable);
+}
+
+/** Whether the two ends of a range are reversed or equal (`92-88`, `92-92`): a range's lower end comes first, below its upper end. */
+export function isReversedRange(parts: readonly number[] | null): boolean {
+  return parts !== null && parts.length === 2 && !(parts[0]! < parts[1]!);
 }
 
 /**

@@ -82,6 +82,12 @@ interface CarryState {
   readonly oxygen: HeldMap;
   readonly vent: HeldMap;
   readonly gasUnit: Held | null;
+  /**
+   * The SpO2 target in force (`spo2_target`, written on an oxygen line): held apart from the oxygen
+   * line's settings, since it is what the oxygen is given for, not how: a new device, room air or
+   * ventilation leaves it in force, and only another target replaces it.
+   */
+  readonly target: Held | null;
 }
 
 export interface Timeline {
@@ -142,7 +148,7 @@ class HeldValue implements Held {
 }
 
 class State implements CarryState {
-  constructor(readonly patient: HeldMap, readonly place: HeldMap, readonly oxygen: HeldMap, readonly vent: HeldMap, readonly gasUnit: Held | null) {}
+  constructor(readonly patient: HeldMap, readonly place: HeldMap, readonly oxygen: HeldMap, readonly vent: HeldMap, readonly gasUnit: Held | null, readonly target: Held | null) {}
 }
 
 class Block implements BlockResult {
@@ -166,7 +172,7 @@ class TimeAt implements TimepointTime {
 }
 
 const EMPTY: HeldMap = new Map();
-const START_STATE: CarryState = Object.freeze(new State(EMPTY, EMPTY, EMPTY, EMPTY, null));
+const START_STATE: CarryState = Object.freeze(new State(EMPTY, EMPTY, EMPTY, EMPTY, null, null));
 const START_TIME: TimepointTime = Object.freeze(new TimeAt(null, null));
 
 export function buildTimeline(tree: NoteTree, settings: Settings): Timeline {
@@ -283,7 +289,7 @@ class Relocator {
   /** Whether a value held in `state` was stated at a timepoint whose label names a line (see `namesLine`). */
   private labelNamesLine(state: CarryState): boolean {
     return this.mapNamesLine(state.patient) || this.mapNamesLine(state.place) || this.mapNamesLine(state.oxygen) || this.mapNamesLine(state.vent) ||
-      (state.gasUnit !== null && namesLine(state.gasUnit.label));
+      (state.gasUnit !== null && namesLine(state.gasUnit.label)) || (state.target !== null && namesLine(state.target.label));
   }
 
   /** Per map, once per run: consecutive blocks mostly hand on the same maps. */
@@ -350,8 +356,9 @@ class Relocator {
     const oxygen = this.map(s.oxygen);
     const vent = this.map(s.vent);
     const gasUnit = s.gasUnit ? this.held(s.gasUnit) : null;
-    const same = patient === s.patient && place === s.place && oxygen === s.oxygen && vent === s.vent && gasUnit === s.gasUnit;
-    const out: CarryState = same ? s : { patient, place, oxygen, vent, gasUnit };
+    const target = s.target ? this.held(s.target) : null;
+    const same = patient === s.patient && place === s.place && oxygen === s.oxygen && vent === s.vent && gasUnit === s.gasUnit && target === s.target;
+    const out: CarryState = same ? s : { patient, place, oxygen, vent, gasUnit, target };
     this.copies.set(s, out);
     return out;
   }
@@ -479,7 +486,7 @@ function sameMap(a: HeldMap, b: HeldMap): boolean {
 
 function sameState(a: CarryState, b: CarryState): boolean {
   return a === b || (
-    sameMap(a.patient, b.patient) && sameMap(a.place, b.place) && sameMap(a.oxygen, b.oxygen) && sameMap(a.vent, b.vent) && a.gasUnit === b.gasUnit
+    sameMap(a.patient, b.patient) && sameMap(a.place, b.place) && sameMap(a.oxygen, b.oxygen) && sameMap(a.vent, b.vent) && a.gasUnit === b.gasUnit && a.target === b.target
   );
 }
 
@@ -514,6 +521,7 @@ function processBlock(lines: readonly LineNode[], start: number, end: number, in
   mutable.oxygen = stateIn.oxygen;
   mutable.vent = stateIn.vent;
   mutable.gasUnit = stateIn.gasUnit;
+  mutable.target = stateIn.target;
   let timeOut = timeIn;
   // Header values and timepoint values are told apart (a header line and a timepoint line of one block).
   const seenInHeader = SEEN_IN_HEADER.reset();
@@ -561,20 +569,34 @@ function processBlock(lines: readonly LineNode[], start: number, end: number, in
     const from = inHeader ? into.length : count;
     const to = readLine(node, context.read, issues, into, from);
     if (!inHeader) count = to;
+    // An SpO2 target is held apart (`CarryState.target`): the rest of its line is read as the oxygen
+    // line it would be without it, and a line of a target alone leaves the therapy in force as it is.
+    let upTo = to;
+    if (node.section === 'oxygen' && !inHeader) {
+      upTo = to > from ? targetsLast(into, from, to) : to;
+      if (upTo < to) {
+        // Two targets at one timepoint: the later is used, as for any value stated twice (PN206).
+        duplicates(into, upTo, to, seenAtTimepoint, false, issues, lines, mutable.oxygen, null);
+        mutable.target = new HeldValue(into[to - 1]!, index, tpLabel!, tpTime);
+      }
+      // A line of targets alone, read or not (`oxygen target 92`, PN102), leaves the therapy as it is.
+      if (node.items.length > 0 && targetless(node.items).length === 0) continue;
+    }
     // The device of the oxygen therapy in force that this oxygen line updates rather than replaces (`updatedDevice`).
-    const updated = node.section === 'oxygen' && !inHeader ? updatedDevice(mutable.oxygen, into, from, to, node.items, index) : null;
-    const paired = to > from ? duplicates(into, from, to, inHeader ? seenInHeader : seenAtTimepoint, inHeader, issues, lines, mutable.oxygen, updated) : null;
+    const updated = node.section === 'oxygen' && !inHeader ? updatedDevice(mutable.oxygen, into, from, upTo, targetless(node.items), index) : null;
+    const paired = upTo > from ? duplicates(into, from, upTo, inHeader ? seenInHeader : seenAtTimepoint, inHeader, issues, lines, mutable.oxygen, updated) : null;
     if (paired !== null) {
       // The FiO2 of a device on one oxygen line and a `fio2` on another: the two lines state one therapy.
-      mutable.oxygen = holdPaired(mutable.oxygen, into, from, to, index, tpLabel!, tpTime);
+      mutable.oxygen = holdPaired(mutable.oxygen, into, from, upTo, index, tpLabel!, tpTime);
       mutable.vent = EMPTY;
-    } else apply(node.section, into, from, to, inHeader ? -1 : index, inHeader ? 'header' : tpLabel!, inHeader ? START_TIME : tpTime, mutable, updated);
+    } else apply(node.section, into, from, upTo, inHeader ? -1 : index, inHeader ? 'header' : tpLabel!, inHeader ? START_TIME : tpTime, mutable, updated);
   }
   SEEN_IN_HEADER.reset();
   SEEN_AT_TIMEPOINT.reset();
   const stateOut = reuseEqual(mutable, stateIn, previousOut);
   mutable.patient = mutable.place = mutable.oxygen = mutable.vent = EMPTY;
   mutable.gasUnit = null;
+  mutable.target = null;
   const keptHeader = header ?? NONE;
   const keptIssues = issues.length === 0 ? NONE : issues.slice();
   issues.length = 0;
@@ -584,6 +606,36 @@ function processBlock(lines: readonly LineNode[], start: number, end: number, in
   const keptStated: readonly StatedValue[] = count === 0 ? NONE : stated.slice(0, count) as StatedValue[];
   for (let k = 0; k < count; k++) stated[k] = undefined;
   return new Block(tpLabel === null ? null : freeze(index, tpLine, tpLabel, tpStart, tpTime, keptStated, endLine, stateOut, settings, ageYears), keptHeader, keptIssues, stateOut, timeOut, ageYears);
+}
+
+/** The field held apart as the SpO2 target (`CarryState.target`). */
+const TARGET = 'spo2_target';
+
+/**
+ * Moves the SpO2 targets among `stated[from, to)` (an oxygen line's values) after its other values,
+ * each part in the order written, and returns where they start (`to` when there are none): what is
+ * before it is read as the oxygen line, the last target is held as the target in force.
+ */
+function targetsLast(stated: (StatedValue | undefined)[], from: number, to: number): number {
+  let k = from;
+  while (k < to && stated[k]!.fieldId !== TARGET) k++;
+  if (k === to) return to;
+  const targets: StatedValue[] = [];
+  let write = from;
+  for (let r = from; r < to; r++) {
+    const s = stated[r]!;
+    if (s.fieldId === TARGET) targets.push(s);
+    else stated[write++] = s;
+  }
+  const start = write;
+  for (const t of targets) stated[write++] = t;
+  return start;
+}
+
+/** An oxygen line's items but its SpO2 targets (the same list where it writes none). */
+function targetless(items: readonly ItemNode[]): readonly ItemNode[] {
+  for (let k = 0; k < items.length; k++) if (items[k]!.field?.id === TARGET) return items.filter((item) => item.field?.id !== TARGET);
+  return items;
 }
 
 /** Scratch space of `processBlock`: the values stated at the block's timepoint, and its read issues. */
@@ -1327,7 +1379,7 @@ function firstOf(stated: readonly (StatedValue | undefined)[], from: number, to:
 }
 
 /** The state of `processBlock` (never nested), kept empty between blocks. */
-const WORKING: MutableState = { patient: EMPTY, place: EMPTY, oxygen: EMPTY, vent: EMPTY, gasUnit: null };
+const WORKING: MutableState = { patient: EMPTY, place: EMPTY, oxygen: EMPTY, vent: EMPTY, gasUnit: null, target: null };
 
 /**
  * The state a block hands on, from the working `state`: `stateIn` itself when the block held
@@ -1336,8 +1388,8 @@ const WORKING: MutableState = { patient: EMPTY, place: EMPTY, oxygen: EMPTY, ven
  */
 function reuseEqual(state: MutableState, stateIn: CarryState, previous: CarryState | null): CarryState {
   if (!previous) {
-    if (state.patient === stateIn.patient && state.place === stateIn.place && state.oxygen === stateIn.oxygen && state.vent === stateIn.vent && state.gasUnit === stateIn.gasUnit) return stateIn;
-    return new State(state.patient, state.place, state.oxygen, state.vent, state.gasUnit);
+    if (state.patient === stateIn.patient && state.place === stateIn.place && state.oxygen === stateIn.oxygen && state.vent === stateIn.vent && state.gasUnit === stateIn.gasUnit && state.target === stateIn.target) return stateIn;
+    return new State(state.patient, state.place, state.oxygen, state.vent, state.gasUnit, state.target);
   }
   const reuseMap = (now: HeldMap, before: HeldMap): HeldMap => {
     let same = now.size === before.size;
@@ -1352,7 +1404,8 @@ function reuseEqual(state: MutableState, stateIn: CarryState, previous: CarrySta
     return same ? before : next;
   };
   const gasUnit = state.gasUnit && previous.gasUnit && sameHeld(state.gasUnit, previous.gasUnit) ? previous.gasUnit : state.gasUnit;
-  return new State(reuseMap(state.patient, previous.patient), reuseMap(state.place, previous.place), reuseMap(state.oxygen, previous.oxygen), reuseMap(state.vent, previous.vent), gasUnit);
+  const target = state.target && previous.target && sameHeld(state.target, previous.target) ? previous.target : state.target;
+  return new State(reuseMap(state.patient, previous.patient), reuseMap(state.place, previous.place), reuseMap(state.oxygen, previous.oxygen), reuseMap(state.vent, previous.vent), gasUnit, target);
 }
 
 /**
@@ -1474,6 +1527,7 @@ class ValuesAt implements ValuesInForce {
   private heldFor(id: string, slot: number | undefined): Held | undefined {
     if (slot === undefined) return undefined;
     const state = this.state;
+    if ((slot & HELD_AS_TARGET) !== 0) return state.target ?? undefined;
     return ((slot & HELD_IN_VENT) !== 0 ? state.vent.get(id) : undefined) ??
       ((slot & HELD_IN_OXYGEN) !== 0 ? state.oxygen.get(id) : undefined) ??
       ((slot & HELD_IN_PLACE) !== 0 ? state.place.get(id) : undefined) ??
@@ -1487,6 +1541,7 @@ class ValuesAt implements ValuesInForce {
     for (const map of [this.state.patient, this.state.place, this.state.oxygen, this.state.vent]) {
       for (const held of map.values()) full.set(held.stated.fieldId, this.get(held.stated.fieldId)!);
     }
+    if (this.state.target !== null) full.set(TARGET, this.get(TARGET)!);
     for (const s of this.stated) if (s.hereOnly) full.set(s.fieldId, this.get(s.fieldId)!);
     this.full = full;
     return full;
@@ -1513,10 +1568,12 @@ const HELD_IN_VENT = 1;
 const HELD_IN_OXYGEN = 2;
 const HELD_IN_PLACE = 4;
 const HELD_IN_PATIENT = 8;
-const HELD_BITS = 4;
-const FIELD_SLOT: ReadonlyMap<string, number> = new Map(FIELDS.map((f, i) => [f.id, (i << HELD_BITS) |
+/** The SpO2 target, held in a place of its own (`CarryState.target`). */
+const HELD_AS_TARGET = 16;
+const HELD_BITS = 5;
+const FIELD_SLOT: ReadonlyMap<string, number> = new Map(FIELDS.map((f, i) => [f.id, (i << HELD_BITS) | (f.id === TARGET ? HELD_AS_TARGET :
   (f.sections.includes('vent') ? HELD_IN_VENT : 0) | (f.sections.includes('oxygen') ? HELD_IN_OXYGEN : 0) |
-  (f.sections.includes('place') ? HELD_IN_PLACE : 0) | (f.sections.includes('patient') ? HELD_IN_PATIENT : 0)]));
+  (f.sections.includes('place') ? HELD_IN_PLACE : 0) | (f.sections.includes('patient') ? HELD_IN_PATIENT : 0))]));
 const MASK_BITS = 30;
 if (FIELDS.length > 2 * MASK_BITS) throw new Error('timeline: too many fields for the bits of fields measured at a timepoint');
 

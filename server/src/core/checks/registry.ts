@@ -33,6 +33,7 @@ import { therapyOverlap } from './therapy-overlap';
 import { gasAboveFio2Change } from './gas-above-change';
 import { unusualBlank } from './unusual-blank';
 import { totalPeepImpossible } from './total-peep';
+import { spo2AboveTarget, spo2BelowTarget, targetBesideHypercapnia } from './spo2-target';
 import { fio2OutOfRange, impossibleValue, saturationAbove100, unusualValue } from './value-bounds';
 
 export const CHECKS: readonly CheckDef[] = validateCheckList([
@@ -89,6 +90,9 @@ export const CHECKS: readonly CheckDef[] = validateCheckList([
   venousGasReading,
   baseExcessDisagrees,
   totalPeepImpossible,
+  spo2AboveTarget,
+  spo2BelowTarget,
+  targetBesideHypercapnia,
   possibleName,
   birthDate,
   calendarDate,

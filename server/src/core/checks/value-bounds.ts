@@ -7,7 +7,7 @@ import { childUsualBounds, isChildAge, softBoundsAt, unitsWithin, within, within
 import type { StatedValue } from '../analysis/model';
 import { PER_KG_PBW } from '../analysis/per-kg-volume';
 import type { Bounds, FieldDef } from '../fields/registry';
-import { displayUnit, isSaturationFraction } from '../analysis/read-value';
+import { displayUnit, isReversedRange, isSaturationFraction } from '../analysis/read-value';
 import { decimalsFor, readUnitName, writtenDecimals } from '../present';
 import { convert, unitById, type UnitDef } from '../fields/units';
 import { toRange } from '../syntax/tree';
@@ -216,15 +216,18 @@ export const impossibleValue = defineCheck({
   severity: 'error',
   tags: ['plausibility'],
   doc: {
-    fires: 'A value lies outside the hard bounds of its field: physically or physiologically impossible. The value is not used in any calculation.',
+    fires: 'A value lies outside the hard bounds of its field: physically or physiologically impossible; or a range (an SpO2 target) has its ends reversed or equal (`target 92-88`), which a range cannot have. The value is not used in any calculation.',
     example: 'abg ph 8.4',
-    fix: 'Check the transcription and the unit. Where the number is ordinary in the field\'s other unit (`temp 98.6 C`, `pco2 56 kPa`), a quick fix writes that unit; a unit in which it would be possible but unusual is not offered (`altitude 25000 m`: 25,000 ft is 7,620 m, above the usual 5,100 m). The bounds of each field and their sources are listed in grammar/README.md.',
+    fix: 'Check the transcription and the unit. Where the number is ordinary in the field\'s other unit (`temp 98.6 C`, `pco2 56 kPa`), a quick fix writes that unit; a unit in which it would be possible but unusual is not offered (`altitude 25000 m`: 25,000 ft is 7,620 m, above the usual 5,100 m). A reversed range is offered its ends swapped (`target 88-92`). The bounds of each field and their sources are listed in grammar/README.md.',
   },
   source: 'field registry bounds; each field names its source (mostly common practice, no source); a child\'s height against the WHO Child Growth Standards 2006, the WHO growth reference for school-aged children and adolescents 2007 and INTERGROWTH-21st very preterm size at birth 2016 (read in their reproductions, physiology/growth.ts)',
   ...valueCheck((ctx, stated, barometricMmhg, at) => {
     const field = stated.field;
     // Most values are within bounds: asked first, the rest only of the few that are not.
-    if (!field.hard || !outOfBounds(stated, field.hard)) return;
+    if (!field.hard || !outOfBounds(stated, field.hard)) {
+      if (field.join === 'dash' && stated.readUnit !== null && isReversedRange(stated.parts)) reportReversedRange(ctx, stated);
+      return;
+    }
     if (OWN_CHECKS.has(field.id) || stated.readUnit === null || stated.readUnit === PER_KG_PBW || stated.unitDoubt) return;
     if (SATURATIONS.has(field.id) && noneNegative(stated)) return;
     const fix = otherUnitFix(field, stated, usualBounds(field, barometricMmhg, at));
@@ -235,6 +238,23 @@ export const impossibleValue = defineCheck({
     });
   }),
 });
+
+/**
+ * A range (`target 92-88`) whose ends are reversed or equal, within its field's bounds: impossible as
+ * written, and not used; reversed ends are offered swapped.
+ */
+function reportReversedRange(ctx: CheckContext, stated: StatedValue): void {
+  const value = stated.item.value;
+  if (value?.kind !== 'pair') return;
+  const [low, high] = value.parts;
+  const equal = stated.parts![0] === stated.parts![1];
+  const range = toRange(stated.line, value.span);
+  ctx.report({
+    range,
+    message: `${asWritten(stated.field, stated)} is impossible as written: a range gives its lower end first, below its upper end; it is not used in calculations.`,
+    ...(!equal && low && high ? { fixes: [{ title: `Swap to ${high.text}-${low.text}`, edits: [{ range, newText: `${high.text}-${low.text}` }] }] } : {}),
+  });
+}
 
 /**
  * For a number written with a unit that makes it impossible (`temp 98.6 C`, `pco2 56 kPa`): the

@@ -22,7 +22,9 @@
  *   pressure of pressure control, above PEEP), fio2_in_force (the FiO2 the calculations use: 0.21
  *   on room air, where fio2_fraction, the FiO2 written, is empty), peep_total_cmH2O and autopeep_cmH2O
  *   (total and intrinsic PEEP of an end-expiratory hold), sbe_mmol_L and sbe_venous_mmol_L (the
- *   standard base excess the arterial and the venous gas's pH and HCO3 give).
+ *   standard base excess the arterial and the venous gas's pH and HCO3 give), spo2_target_low_pct
+ *   and spo2_target_high_pct (the two ends of the SpO2 target in force: written, carried, or the
+ *   spo2Target setting's).
  *
  * Cells:
  * - Field values are those in force at the timepoint: stated there, carried from an earlier
@@ -59,6 +61,8 @@ import type { InputValue, StatedValue, Timepoint } from '../analysis/model';
 import type { DerivedValue } from '../derive/model';
 import { SEA_LEVEL_MMHG } from '../derive/atmosphere';
 import { fio2InForce } from '../derive/context';
+import { targetInForce } from '../analysis/spo2-target';
+import type { Settings } from '../settings';
 import { ALVEOLAR_ROUNDING_MMHG } from '../derive/gas-exchange';
 import { DERIVED } from '../derive/registry';
 import { FIELDS, type FieldDef } from '../fields/registry';
@@ -116,6 +120,8 @@ interface RowContext {
   readonly gasUnit: string;
   readonly label: string | null;
   readonly options: ExportOptions;
+  /** The settings the note was analysed with (the SpO2 target of a note that writes none). */
+  readonly settings: Pick<Settings, 'spo2Target'>;
 }
 
 interface Column extends ColumnDef {
@@ -269,6 +275,23 @@ function fieldColumns(field: FieldDef, index: number, onlySection: SectionId | n
   const unit = unitForPeople(unitId);
   const ucum = ucumCode(unitId);
   const slug = unitSlug(unitId);
+  if (field.kind === 'pair' && field.join === 'dash') {
+    // A range (the SpO2 target): its lower and upper ends, as in force (written, carried, or the setting's).
+    const end = (which: 'low' | 'high'): Column => ({
+      ...base,
+      name: `${field.id}_${which}_${slug}`,
+      description: `${field.label}, its ${which === 'low' ? 'lower' : 'upper'} end: ${field.description} Else the \`spo2Target\` setting's, where it gives one; empty where no target is in force, or the one written is not used (PN301).`,
+      unit,
+      ucum,
+      type: 'number',
+      part: which,
+      cell: (c) => {
+        const target = targetInForce(c.timepoint.values, c.settings);
+        return target === null ? null : finite(which === 'low' ? target.lowPct : target.highPct);
+      },
+    });
+    return [end('low'), end('high')];
+  }
   if (field.kind === 'pair') {
     const part = (which: 'systolic' | 'diastolic', at: number): Column => ({
       ...base,
@@ -460,6 +483,8 @@ const ADDED_LATER: readonly { readonly kind: 'field' | 'derived' | 'in-force'; r
   { kind: 'field', id: 'autopeep' },
   { kind: 'derived', id: 'sbe' },
   { kind: 'derived', id: 'sbe_venous' },
+  // The SpO2 target in force, its two ends (`spo2_target_low_pct`, `spo2_target_high_pct`).
+  { kind: 'field', id: 'spo2_target' },
 ];
 
 /**
@@ -605,7 +630,7 @@ export function timepointCells(path: string, result: NoteResult, options: Export
   const findingsAt = findingsByTimepoint(result);
   return result.analysis.timeline.timepoints.map((timepoint, i) => {
     const derived = derivedAt(result.analysis.derivation(timepoint.index).derived);
-    const context: RowContext = { path, timepoint, inputs: inputsAt(timepoint), derived, findings: findingsAt[i] ?? [], firstMinutes, gasUnit: gasUnitAt[i] ?? result.settings.gasUnit, label: writtenLabel(result, timepoint), options };
+    const context: RowContext = { path, timepoint, inputs: inputsAt(timepoint), derived, findings: findingsAt[i] ?? [], firstMinutes, gasUnit: gasUnitAt[i] ?? result.settings.gasUnit, label: writtenLabel(result, timepoint), options, settings: result.settings };
     const cells = new Array<Cell>(COLUMNS.length);
     for (let k = 0; k < COLUMNS.length; k++) cells[k] = COLUMNS[k]!.cell(context);
     return cells;

@@ -353,10 +353,17 @@ export function observationCategory(field: FieldDef, reading: boolean = field.re
 /** Sections whose numbers are exported as Observations (see the header comment). */
 const OBSERVED_SECTIONS: ReadonlySet<SectionId> = new Set<SectionId>(['patient', 'vitals', 'oxygen', 'vent', 'abg', 'vbg', 'labs']);
 
+/**
+ * Fields of those sections that are not exported: the SpO2 target is a prescription, neither a
+ * measurement nor a setting of a device, and no LOINC code for a saturation target was found (none
+ * is made up), so CSV and JSON Lines carry it and FHIR does not.
+ */
+const NOT_OBSERVED: ReadonlySet<string> = new Set(['spo2_target']);
+
 /** Whether a field's values become Observations: numbers and pairs about the patient or the treatment. */
 export function isObservedField(field: FieldDef): boolean {
   const section = field.sections[0];
-  return field.kind !== 'word' && section !== undefined && OBSERVED_SECTIONS.has(section);
+  return field.kind !== 'word' && section !== undefined && OBSERVED_SECTIONS.has(section) && !NOT_OBSERVED.has(field.id);
 }
 
 /** What else decides whether a code fits: the key the note wrote, the oxygen device in force. */

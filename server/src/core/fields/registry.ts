@@ -84,6 +84,12 @@ export interface FieldDef {
   readonly measuredIn?: readonly ModeFamily[];
   /** Mode families under which a value of this field, a reading by default, is set and carried (the mean airway pressure in HFOV). */
   readonly setIn?: readonly ModeFamily[];
+  /**
+   * For pair fields: how the two numbers are joined. 'slash' (the default) as a blood pressure is
+   * written (`120/80`); 'dash' for a range, by a hyphen or an en dash glued to both numbers
+   * (`88-92`, `88–92`), the lower end first.
+   */
+  readonly join?: 'slash' | 'dash';
   /** Decimal places used when the value is written back or shown. */
   readonly decimals: number;
 }
@@ -173,6 +179,7 @@ const ROWS: readonly FieldDef[] = [
   { id: 'ipap', label: 'IPAP', short: 'IPAP', description: 'Inspiratory positive airway pressure (non-invasive ventilation).', sections: ['oxygen'], aliases: ['ipap'], kind: 'number', dimension: 'airway-pressure', unit: 'cmH2O', units: ['cmH2O', 'mbar'], hard: { min: 0, max: 50 }, soft: { max: 30 }, boundsSource: CP, decimals: 0 },
   { id: 'epap', label: 'EPAP', short: 'EPAP', description: 'Expiratory positive airway pressure (non-invasive ventilation); counts as PEEP.', sections: ['oxygen'], aliases: ['epap'], kind: 'number', dimension: 'airway-pressure', unit: 'cmH2O', units: ['cmH2O', 'mbar'], hard: { min: 0, max: 30 }, soft: { max: 20 }, boundsSource: CP, decimals: 0 },
   { id: 'cpap_level', label: 'CPAP', short: 'CPAP', description: 'Continuous positive airway pressure level; counts as PEEP.', sections: ['oxygen'], aliases: ['level', 'pressure'], kind: 'number', dimension: 'airway-pressure', unit: 'cmH2O', units: ['cmH2O', 'mbar'], hard: { min: 0, max: 30 }, soft: { max: 20 }, boundsSource: CP, decimals: 0 },
+  { id: 'spo2_target', label: 'SpO2 target', short: 'SpO2 target', description: 'The SpO2 range the oxygen is prescribed to, two whole percentages joined by a hyphen or an en dash, the lower first (`target 88-92`, `target 94–98 %`); in force from where it is written until another target is, through changes of device, room air and ventilation.', sections: ['oxygen'], aliases: ['spo2_target', 'target'], kind: 'pair', join: 'dash', dimension: 'percent', unit: '%sat', units: ['%sat'], hard: { min: 70, max: 100 }, boundsSource: `${CP}: a saturation is at most 100 %, and oximeter accuracy falls below about 70 % (the SpO2's usual minimum); the targets prescribed are 88–92 % and 94–98 % (O'Driscoll BR, Howard LS, Earis J, Mak V, BTS guideline for oxygen use in adults in healthcare and emergency settings, Thorax 2017;72(Suppl 1):ii1–ii90, from memory) or 92–96 % (Beasley R and coauthors, TSANZ oxygen guidelines for acute oxygen use in adults, Respirology 2015;20:1182–1191, from memory); a range written with its ends reversed or equal is impossible as written`, decimals: 0 },
   { id: 'mode', label: 'Ventilator mode', description: 'Ventilation mode, one word (e.g. VC, PC, PS, SIMV, APRV); SIMV run volume-targeted or pressure-targeted is `SIMV-VC` or `SIMV-PC` (plain SIMV is read as volume-targeted).', sections: ['vent'], aliases: ['mode'], kind: 'word', openWords: true, words: { vc: 'VC', pc: 'PC', prvc: 'PRVC', ps: 'PS', simv: 'SIMV', 'simv-vc': 'SIMV-VC', 'simv-pc': 'SIMV-PC', aprv: 'APRV', cpap: 'CPAP', hfov: 'HFOV' }, decimals: 0 },
   { id: 'vt', label: 'Tidal volume', short: 'VT', description: 'Tidal volume (set in volume modes and PRVC; measured, and of its timepoint only, where the mode sets a pressure: PC, SIMV-PC, APRV, PS, CPAP, HFOV, and under NIV or CPAP of an oxygen line).', sections: ['vent'], aliases: ['vt', 'tidal', 'tv'], kind: 'number', dimension: 'volume', unit: 'mL', units: ['mL', 'L', 'mL/kg'], hard: { min: 0, max: 3000 }, soft: { min: 50, max: 1200 }, boundsSource: `${CP}; the usual minimum is 2 mL per kg of body size (the smaller of the weight and the predicted body weight in force; half the ARDS Network protocol's 4 mL/kg), 50 mL (2 mL/kg of the 25 kg soft minimum of weight) where the note gives neither, and none for a patient under 18 years where it gives neither (a child's size runs from a preterm newborn's to an adult's)`, loinc: { code: '20112-9', display: 'Tidal volume setting Ventilator', source: SEEN.miiVentLoinc }, measuredIn: ['pressure', 'spontaneous', 'oscillation'], decimals: 0 },
   { id: 'vent_rate', label: 'Set rate', description: 'Set ventilator rate; in HFOV the oscillation frequency, usually written in Hz (1 Hz = 60 /min).', sections: ['vent'], aliases: ['rate', 'f', 'set_rate'], kind: 'number', dimension: 'rate', unit: '/min', units: ['/min', 'Hz'], hard: { min: 0, max: 1200 }, soft: { max: 60 }, boundsSource: `${CP}; oscillators are set from about 3 to 15 Hz (180–900 /min, from memory), so up to 20 Hz (1200 /min) is possible, and in HFOV the usual range is 3–15 Hz rather than at most 60 /min`, decimals: 0 },
@@ -226,7 +233,7 @@ function oneShape(f: FieldDef): FieldDef {
   return {
     id: f.id, label: f.label, short: f.short, description: f.description, sections: f.sections, aliases: f.aliases, kind: f.kind,
     dimension: f.dimension, unit: f.unit, units: f.units, bare: f.bare, hard: f.hard && oneBounds(f.hard), soft: f.soft && oneBounds(f.soft), doubt: f.doubt && oneBounds(f.doubt),
-    boundsSource: f.boundsSource, loinc: f.loinc, loincBySection: f.loincBySection, loincByKey: f.loincByKey, words: f.words && withHyphens(f.words), openWords: f.openWords, reading: f.reading, measuredIn: f.measuredIn, setIn: f.setIn, decimals: f.decimals,
+    boundsSource: f.boundsSource, loinc: f.loinc, loincBySection: f.loincBySection, loincByKey: f.loincByKey, words: f.words && withHyphens(f.words), openWords: f.openWords, reading: f.reading, measuredIn: f.measuredIn, setIn: f.setIn, join: f.join, decimals: f.decimals,
   };
 }
 

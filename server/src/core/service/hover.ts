@@ -18,7 +18,8 @@ import { shortAsName } from '../derive/context';
 import { fieldFor, fieldsInSection, loincFor, type FieldDef } from '../fields/registry';
 import { FAMILY_MEANING, measuredByMode, modeFamily, SIMV_UNTARGETED } from '../fields/modes';
 import { sectionById, type SectionId } from '../fields/sections';
-import { dayAndClock, describeInput, formatAlternative, formatStated, readUnitName, statedInKpa } from '../present';
+import { dayAndClock, describeInput, formatAlternative, formatStated, readUnitName, statedInKpa, timeText } from '../present';
+import { SPO2_TARGET_FIELD, standing, targetInForce, targetText } from '../analysis/spo2-target';
 import type { SectionLine, TimepointLine } from '../syntax/tree';
 import type { Position } from '../types';
 import { formatNumber, formatShort, wordList } from '../util/format';
@@ -102,7 +103,7 @@ function fieldMarkdown(result: NoteResult, node: SectionLine, hit: ItemHit): str
   if (stated) {
     parts.push(valueText(stated, showsKpaOnLine(result, stated.line)), modeFamilyText(stated));
     if (field.id === 'device') parts.push(...deviceParagraphs(field, stated, stated.item.value?.text ?? ''));
-    parts.push(unitText(result, stated, field), originText(result, stated), usableText(stated, field), notGivenText(result, stated), feedsText(result, stated), gasValueChange(result, stated));
+    parts.push(unitText(result, stated, field), originText(result, stated), usableText(stated, field), notGivenText(result, stated), feedsText(result, stated), gasValueChange(result, stated), targetStandingText(result, stated));
   } else if (hit.item.value) {
     parts.push(`${code(hit.item.value.text)} could not be read as ${escapeMarkdown(field.label)}.`);
   }
@@ -314,8 +315,27 @@ function modeFamilyText(stated: StatedValue): string | null {
   return `Family: **${family}** — ${FAMILY_MEANING[family]}.${untargeted}`;
 }
 
+/**
+ * Where an SpO2 stands against the SpO2 target in force at its timepoint (written, carried, or the
+ * spo2Target setting's): `within target 88–92 %`, `above`, `below`; null for another value, one not
+ * used, or where no target is in force.
+ */
+function targetStandingText(result: NoteResult, s: StatedValue): string | null {
+  if (s.fieldId !== 'spo2' || !s.usable || s.value === null) return null;
+  const tp = timepointOfLine(result, s.line);
+  const target = tp ? targetInForce(tp.values, result.settings) : null;
+  if (target === null) return null;
+  const origin = target.input?.origin;
+  const from = origin === undefined ? 'the spo2Target setting\'s'
+    : origin.kind === 'carried' ? `in force since ${timeText(origin.fromTime) ?? 'an earlier timepoint'}, line ${origin.line + 1}`
+      : origin.kind === 'default' ? '' : `written on line ${origin.line + 1}`;
+  const where = standing(s.value, target);
+  return `SpO2 target: **${where}** target ${targetText(target)}${from ? ` (${from})` : ''}.`;
+}
+
 function carryText(field: FieldDef, section: SectionId, stated: StatedValue | null, mode: string | null, support: NoninvasiveSupport | null): string {
   const kind = sectionById(section).kind;
+  if (field.id === SPO2_TARGET_FIELD) return 'Carries forward: yes, until another target is written; a new device, room air and a `vent` line leave it in force.';
   // A value the breaths in force measure rather than set (fields/modes.ts: a tidal volume under PS,
   // or with no mode on a vent line of readings under NIV or CPAP, the volume the device measured).
   if (kind === 'setting' && stated?.hereOnly === true && measuredByMode(field, mode, support)) {

@@ -1169,17 +1169,44 @@ function readSpacedGroup(chunks: readonly Word[], i: number, source: string, mea
 }
 
 /**
+ * Two numbers joined by one hyphen or en dash in one chunk, a range with its lower end first
+ * (`88-92`, `88–92`; a unit may be glued to the second: `88-92%`), for a field whose pairs are
+ * joined so (`join: 'dash'`), or null. Like `groupAt`, it leaves its glued unit in GROUP. A sign
+ * after the dash is no part of a range (`88--92` is none).
+ */
+function readDashGroup(chunk: Word, source: string): PairNode | null {
+  GROUP.used = 1;
+  GROUP.unit = null;
+  const body = chunk.source;
+  const wordStart = chunk.base + chunk.start;
+  const size = chunk.end - chunk.start;
+  const first = scanWordFrom(chunk, 0);
+  if (first === 0 || first >= size - 1) return null;
+  const comma = SCANNED.decimalComma;
+  const dash = body.charCodeAt(wordStart + first);
+  if ((dash !== 0x2d /* - */ && dash !== 0x2013 /* – */) || !isDigit(body.charCodeAt(wordStart + first + 1))) return null;
+  const second = scanWordFrom(chunk, first + 1);
+  if (second === 0) return null;
+  const end = first + 1 + second;
+  if (end < size) {
+    if (!isUnitStart(body.charCodeAt(wordStart + end))) return null;
+    GROUP.unit = token(chunk.text.slice(end), chunk.start + end, chunk.end);
+  }
+  return new PairNode(source, chunk.start, chunk.start + end, 2, comma || SCANNED.decimalComma, true);
+}
+
+/**
  * Numbers joined by slashes (`120/80`, `120 / 80`). It keeps where it is and how many numbers it
  * has, and reads its numbers again from its line when they are asked for (`parts`, `numbers`): a
  * big note has a blood pressure at every timepoint, and few pairs are read more than once.
  */
 class PairNode extends Cut implements PairValue {
-  /** How many numbers (times 2), plus 1 when one has a decimal comma. */
+  /** How many numbers (times 4), plus 2 when they are joined by a dash (a range), plus 1 when one has a decimal comma. */
   declare private readonly flags: number;
 
-  constructor(source: string, start: number, end: number, count: number, decimalComma: boolean) {
+  constructor(source: string, start: number, end: number, count: number, decimalComma: boolean, dash = false) {
     super(source, start, end);
-    this.flags = count * 2 + (decimalComma ? 1 : 0);
+    this.flags = count * 4 + (dash ? 2 : 0) + (decimalComma ? 1 : 0);
   }
 
   /** On the class, not on each pair. */
@@ -1187,9 +1214,14 @@ class PairNode extends Cut implements PairValue {
     return 'pair';
   }
 
+  /** Whether its numbers are joined by a dash (a range: `88-92`) rather than by slashes. */
+  get dashed(): boolean {
+    return (this.flags & 2) !== 0;
+  }
+
   /** How many numbers the pair has (without building them). */
   get count(): number {
-    return this.flags >> 1;
+    return this.flags >> 2;
   }
 
   /** Built on each read: callers read them once. */
@@ -1230,10 +1262,21 @@ class PairNode extends Cut implements PairValue {
    */
   private numberAt(at: number, k: number): number {
     const source = this.source;
-    if (k > 0) while (source.charCodeAt(at) === 0x2f /* / */ || isBlank(source.charCodeAt(at))) at++;
+    if (k > 0 && (this.flags & 2) !== 0) at++; // the one hyphen or en dash of a range (`88-92`)
+    else if (k > 0) while (source.charCodeAt(at) === 0x2f /* / */ || isBlank(source.charCodeAt(at))) at++;
     NUMBER_LENGTH = scanNumber(source, at);
     return at;
   }
+}
+
+/** What a range field (`join: 'dash'`) written in another shape is told (PN102). */
+function rangeShapeMessage(key: string, written: string): string {
+  return `\`${key}\` takes a range of two whole numbers joined by a hyphen, the lower first (\`${key} 88-92\`); \`${written}\` is not one, so it is not read.`;
+}
+
+/** Whether a pair is a range, its numbers joined by a dash (`88-92`), not by a slash. */
+export function isDashedPair(pair: PairValue): boolean {
+  return pair instanceof PairNode && pair.dashed;
 }
 
 /** The numbers of a pair, in a new list of their own: for a pair the parser made, without a node per number. */
@@ -1855,7 +1898,8 @@ function onlyKeyTaking(section: SectionId, unitText: string): string | null {
   let owner: FieldDef | null = null;
   let several = false;
   for (const field of FIELDS) {
-    if (!field.sections.includes(section) || !units.some((u) => field.units?.includes(u.id) === true)) continue;
+    // A range (`target 88-92`) is never one number: a lone `40 %` is no SpO2 target.
+    if (!field.sections.includes(section) || field.join === 'dash' || !units.some((u) => field.units?.includes(u.id) === true)) continue;
     if (owner !== null) several = true;
     owner = field;
   }
@@ -2136,7 +2180,10 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
         // a pair; then SCANNED still holds what `scanWord` read.
         const lead = scanWord(next);
         const tryGroup = lead > 0 && (lead < next.end - next.start || field?.kind === 'pair');
-        const group = tryGroup ? groupAt(chunks, i, source, field?.kind === 'pair', field?.id === 'bp' ? limit : -1) : null;
+        // A range (`target 88-92`) is joined by a dash, never by a slash.
+        const dashed = field?.join === 'dash';
+        // A slash group there (`target 88/92`) is read as any pair is, and reported (PN102).
+        const group = !tryGroup ? null : (dashed ? readDashGroup(next, source) : null) ?? groupAt(chunks, i, source, field?.kind === 'pair', field?.id === 'bp' ? limit : -1);
         const glued = GROUP.unit;
         const used = GROUP.used;
         const length = group ? 0 : tryGroup ? numberChunk(next) : lead;
@@ -2148,6 +2195,9 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
           if (field?.kind === 'number') {
             // `hr 80/90`: numbers joined by a slash where the key takes one; nothing would be read from it.
             issues.push({ check: 'missing-value', span: { start: key.start, end: group.end }, message: `\`${key.text}\` takes one number; \`${group.text}\` is ${countWord(group.count)} numbers, so it is not read.`, fixes: NONE });
+          } else if (dashed && !group.dashed) {
+            // `target 88/92`: a range is joined by a dash; nothing is read from it.
+            issues.push({ check: 'missing-value', span: { start: key.start, end: group.end }, message: rangeShapeMessage(key.text, group.text), fixes: NONE });
           } else if (field?.kind === 'pair' && group.count !== 2) {
             // `bp 120/80/60`: a pair is two numbers; a third would otherwise be dropped in silence.
             issues.push({ check: 'missing-value', span: { start: key.start, end: group.end }, message: `\`${key.text}\` takes two numbers joined by a slash (\`${key.text} 120/80\`); \`${group.text}\` is ${countWord(group.count)}, so it is not read.`, fixes: NONE });
@@ -2184,7 +2234,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
           items[count++] = numberItem(key.text, key.text, WRITTEN, field, source, number, next.start + length, comma, unit, key.start);
           if (field?.kind === 'pair') {
             // `bp 120`: a key that takes two numbers with one; nothing would be read from it.
-            issues.push({ check: 'missing-value', span: { start: key.start, end: next.start + length }, message: `\`${key.text}\` takes two numbers joined by a slash (\`${key.text} 120/80\`); \`${next.text.slice(0, length)}\` is one, so it is not read.`, fixes: NONE });
+            issues.push({ check: 'missing-value', span: { start: key.start, end: next.start + length }, message: dashed ? rangeShapeMessage(key.text, next.text.slice(0, length)) : `\`${key.text}\` takes two numbers joined by a slash (\`${key.text} 120/80\`); \`${next.text.slice(0, length)}\` is one, so it is not read.`, fixes: NONE });
           }
           continue;
         }
