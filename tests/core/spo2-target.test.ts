@@ -138,6 +138,13 @@ describe('SpO2 below the target (PN328)', () => {
       .toEqual(['SpO2 86 % on oxygen (cannula) is below the target 88–92 % in force since day 1 09:00, line 2.']);
   });
 
+  it('names NIV, CPAP and high flow as the rest of Pneumark does, in capitals', () => {
+    expect(findings('@ day 1 09:00\noxygen niv, ipap 16, epap 6, fio2 0.35, target 88-92\nvitals spo2 86', 'PN328').map((f) => f.message))
+      .toEqual(['SpO2 86 % on oxygen (NIV) is below the target 88–92 % written at this timepoint.']);
+    expect(findings('@ day 1 09:00\noxygen hfnc 40 L/min, fio2 0.4, target 88-92\nvitals spo2 97', 'PN327').map((f) => f.message))
+      .toEqual(['SpO2 97 % on oxygen (HFNC) is above the target 88–92 % written at this timepoint.']);
+  });
+
   it('says so where the note names neither oxygen nor air', () => {
     expect(findings('@ day 1 09:00\nvitals spo2 90', 'PN328', { spo2Target: '94-98' }).map((f) => f.message))
       .toEqual(['SpO2 90 % (neither oxygen nor room air written) is below the target 94–98 % of the spo2Target setting.']);

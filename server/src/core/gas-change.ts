@@ -30,7 +30,7 @@ import { fieldById } from './fields/registry';
 import { deviceInForce, noninvasiveSupport, supportOfPressure } from './analysis/noninvasive-support';
 import { fio2EstimateLowFlow } from './physiology/oxygen-transport';
 import { fio2InForce } from './derive/context';
-import { KPA_DECIMALS, kpaFromMmhg, timeText } from './present';
+import { deviceShown, KPA_DECIMALS, kpaFromMmhg, timeText } from './present';
 import { trendGasUnit, type TrendGasUnit } from './trends';
 import { formatNumber } from './util/format';
 
@@ -272,13 +272,9 @@ export function valueChangeText(c: ValueChange): string {
   return `${name} ${c.difference > 0 ? 'up' : 'down'} ${formatNumber(Math.abs(c.difference), c.decimals)}${unit} (was ${earlier})${mark}`;
 }
 
-/** How a device is named on a change line: the note's canonical word, NIV, CPAP and HFNC in capitals. */
-const DEVICE_NAMES: Readonly<Record<string, string>> = { niv: 'NIV', cpap: 'CPAP', hfnc: 'HFNC' };
-
 /** `device now mask (was cannula)`, with a `*` where either device was carried in. */
 export function deviceChangeText(d: DeviceChange): string {
-  const named = (word: string) => DEVICE_NAMES[word] ?? word;
-  return `device now ${named(d.later)} (was ${named(d.earlier)})${d.carried ? '*' : ''}`;
+  return `device now ${deviceShown(d.later)} (was ${deviceShown(d.earlier)})${d.carried ? '*' : ''}`;
 }
 
 /** `timepoint 2 (PEEP raised, day 2 02:00)`: the earlier gas's timepoint, counted from 1, with its label and time where the note gives them. */

@@ -283,3 +283,11 @@ export function describeInput(input: InputValue, tp: Timepoint | null = null): s
   const value = kpa ? `${kpa} = ${formatStated(input.stated)}` : formatStated(input.stated);
   return `${labelOf(input.stated.fieldId)} ${value} (${describeOrigin(input.origin)})`;
 }
+
+/** How an oxygen device is named in a message: the note's canonical word, with NIV, CPAP and HFNC in capitals. */
+const DEVICE_NAMES: Readonly<Record<string, string>> = { niv: 'NIV', cpap: 'CPAP', hfnc: 'HFNC' };
+
+/** `NIV` for `niv`, `mask` for `mask`: a device's canonical word as messages name it. */
+export function deviceShown(word: string): string {
+  return DEVICE_NAMES[word] ?? word;
+}

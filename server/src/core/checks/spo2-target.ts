@@ -7,7 +7,7 @@
  */
 import type { InputValue } from '../analysis/model';
 import { breathing, targetInForce, targetText, type Spo2Target } from '../analysis/spo2-target';
-import { carriedFromText, gasPressureText, showsKpa, statedGasText, timeText } from '../present';
+import { carriedFromText, deviceShown, gasPressureText, showsKpa, statedGasText, timeText } from '../present';
 import { toRange } from '../syntax/tree';
 import type { Range } from '../types';
 import { formatNumber } from '../util/format';
@@ -72,7 +72,7 @@ export const spo2AboveTarget = defineCheck({
     if (air === null || !air.onOxygen) return;
     ctx.report({
       range: toRange(found.spo2.stated.line, found.spo2.stated.item.span),
-      message: `SpO2 ${formatNumber(found.value, 0)} % on oxygen (${air.how}) is above ${targetPhrase(ctx, found.target)}.`,
+      message: `SpO2 ${formatNumber(found.value, 0)} % on oxygen (${deviceShown(air.how)}) is above ${targetPhrase(ctx, found.target)}.`,
       ...relatedTarget(found.target),
     });
   },
@@ -94,7 +94,7 @@ export const spo2BelowTarget = defineCheck({
     const found = spo2AndTarget(ctx);
     if (found === null || found.value >= found.target.lowPct) return;
     const air = breathing(ctx.timepoint.values);
-    const on = air === null ? ' (neither oxygen nor room air written)' : air.onOxygen ? ` on oxygen (${air.how})` : ' on room air';
+    const on = air === null ? ' (neither oxygen nor room air written)' : air.onOxygen ? ` on oxygen (${deviceShown(air.how)})` : ' on room air';
     ctx.report({
       range: toRange(found.spo2.stated.line, found.spo2.stated.item.span),
       message: `SpO2 ${formatNumber(found.value, 0)} %${on} is below ${targetPhrase(ctx, found.target)}.`,
