@@ -29,7 +29,7 @@ describe('altitude: usual up to about 5,100 m', () => {
     // 6,000 ft (1,829 m) is usual: offered, not preferred, since 6,000 m is possible.
     const text = 'place altitude 6000 m';
     const [f] = checkNote(text).findings;
-    expect(f?.message).toBe('Altitude 6000 m is unusual (usually -450 m to 5100 m): check the unit and the transcription. In ft it would be usual.');
+    expect(f?.message).toBe('Altitude 6000 m is unusual (usually -450 m to 5100 m): check the unit and the transcription. As `6000 ft` it would be usual.');
     expect(quickFixes(text, f!).map((x) => [x.title, x.preferred, x.fixed])).toEqual([['Write ft instead of m', false, 'place altitude 6000 ft']]);
     // West's model atmosphere at 6 km: exp(6.63268 − 0.6672 − 0.05364) ≈ 369 mmHg (West JB, J Appl Physiol 1996, from memory).
     expect(checkNote('place altitude 6000 m\n@ 08:00\nvitals hr 90').analysis.timeline.timepoints[0]!.barometricMmhg).toBeCloseTo(369, 0);
@@ -96,7 +96,7 @@ describe('age: usual up to 110 years', () => {
   it('above 110 years is unusual (PN302); months are offered where they give a usual age, and never for a bare number', () => {
     const text = 'patient age 125 y';
     const [f] = checkNote(text).findings;
-    expect(f?.message).toBe('Age 125 y is unusual (usually at most 110 y): check the unit and the transcription. In mo it would be usual.');
+    expect(f?.message).toBe('Age 125 y is unusual (usually at most 110 y): check the unit and the transcription. As `125 mo` it would be usual.');
     expect(quickFixes(text, f!).map((x) => [x.title, x.preferred, x.fixed])).toEqual([['Write mo instead of y', false, 'patient age 125 mo']]);
     // A bare 115 is read as years (possible), flagged, and kept.
     const bare = checkNote('patient age 115');

@@ -112,7 +112,7 @@ describe('a child\'s height below the floor of the age is unusual, with a word o
     // 3 y: corrected 2.693 y, between 2 y (76.05) and 3 y (95.0572, 0.04007: 83.63): 81.31 − 10 → 71.
     expect(childHeightMinCm(3)).toBe(71);
     expect(findings('patient age 3 y, height 45 cm')).toEqual(['PN302 1']);
-    expect(messageOf('patient age 3 y, height 45 cm')).toBe('Height 45 cm is unusual (usually 71 cm to 220 cm): check the unit and the transcription. In in it would be usual. A disorder of growth can make so short a height real at this age.');
+    expect(messageOf('patient age 3 y, height 45 cm')).toBe('Height 45 cm is unusual (usually 71 cm to 220 cm): check the unit and the transcription. As `45 in` it would be usual. A disorder of growth can make so short a height real at this age.');
     expect(findings('patient age 3 y, height 71 cm, weight 9')).toEqual([]);
     expect(findings('patient age 3 y, height 70 cm')).toEqual(['PN302 1']);
   });

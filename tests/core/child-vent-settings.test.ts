@@ -34,7 +34,7 @@ describe('inspiratory flow of a child (under 18 years)', () => {
 
   it('a child has a usual minimum still: 2 L/min', () => {
     expect(messages(`${infant}vent      mode VC, vt 20 mL, rate 40, peep 5, flow 1 L/min`, 'PN302')).toEqual([
-      'Inspiratory flow 1 L/min is unusual (usually 2 L/min to 120 L/min): check the unit and the transcription. In L/s it would be usual.',
+      'Inspiratory flow 1 L/min is unusual (usually 2 L/min to 120 L/min): check the unit and the transcription. As `1 L/s` it would be usual.',
     ]);
     expect(found(`${infant}vent      mode VC, vt 20 mL, rate 40, peep 5, flow 2 L/min`)).toEqual([]);
   });

@@ -119,13 +119,13 @@ describe('the usual set rate depends on the mode', () => {
     expect(rateOf(text)).toBe(15);
     expect(derivation(text).derived.find((v) => v.id === 'minute_ventilation')?.value).toBeCloseTo(6, 9); // 400 mL × 15 /min
     const [f] = findings('@ 08:00\nvent mode PC, rate 2 Hz, fio2 0.6', 'PN302');
-    expect(f?.message).toBe('Set rate 2 Hz is unusual (usually at most 1 Hz, or 60 /min): check the unit and the transcription. A rate in Hz is usual in HFOV; the mode in force here is PC. In /min it would be usual.');
+    expect(f?.message).toBe('Set rate 2 Hz is unusual (usually at most 1 Hz, or 60 /min): check the unit and the transcription. A rate in Hz is usual in HFOV; the mode in force here is PC. As `2 /min` it would be usual.');
     expect(f?.fixes.map((x) => x.title)).toEqual(['Write /min instead of Hz']);
-    expect(findings('@ 08:00\nvent rate 5 Hz, fio2 0.6', 'PN302')[0]?.message).toMatch(/the mode in force here is not stated\. In \/min it would be usual\.$/);
+    expect(findings('@ 08:00\nvent rate 5 Hz, fio2 0.6', 'PN302')[0]?.message).toMatch(/the mode in force here is not stated\. As `5 \/min` it would be usual\.$/);
     // `rate 14 Hz` in VC (840 /min): 14 /min would be usual, and /min is offered.
     const text14 = '@ 08:00\nvent mode VC, vt 400 mL, rate 14 Hz, peep 8';
     const [g] = findings(text14, 'PN302');
-    expect(g?.message).toBe('Set rate 14 Hz is unusual (usually at most 1 Hz, or 60 /min): check the unit and the transcription. A rate in Hz is usual in HFOV; the mode in force here is VC. In /min it would be usual.');
+    expect(g?.message).toBe('Set rate 14 Hz is unusual (usually at most 1 Hz, or 60 /min): check the unit and the transcription. A rate in Hz is usual in HFOV; the mode in force here is VC. As `14 /min` it would be usual.');
     expect(g?.fixes.map((x) => x.title)).toEqual(['Write /min instead of Hz']);
     expect(findings(applyEdits(text14, g!.fixes[0]!.edits))).toEqual([]);
   });

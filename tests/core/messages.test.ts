@@ -13,7 +13,7 @@ describe('a number in a message carries its unit', () => {
   it('impossible and unusual values are named with the unit they were read in', () => {
     expect(messages('labs na 250', 'PN301')).toEqual(['Sodium 250 mmol/L is impossible (expected 80 mmol/L to 200 mmol/L); it is not used in calculations.']);
     expect(messages('vitals hr 236', 'PN302')).toEqual(['Heart rate 236 /min is unusual (usually 30 /min to 220 /min): check the unit and the transcription.']);
-    expect(messages('abg pco2 5 mmHg', 'PN302')).toEqual(['PaCO2 5 mmHg is unusual (usually 15 mmHg to 150 mmHg): check the unit and the transcription. In kPa it would be usual.']);
+    expect(messages('abg pco2 5 mmHg', 'PN302')).toEqual(['PaCO2 5 mmHg is unusual (usually 15 mmHg to 150 mmHg): check the unit and the transcription. As `5 kPa` it would be usual.']);
     // pH has no unit, and none is made up for it.
     expect(messages('abg ph 8.4', 'PN301')).toEqual(['pH (arterial) 8.4 is impossible (expected 6.30 to 8.00); it is not used in calculations.']);
     expect(messages('abg ph 6.5', 'PN302')).toEqual(['pH (arterial) 6.5 is unusual (usually 6.80 to 7.80): check the transcription.']);

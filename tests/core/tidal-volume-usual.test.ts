@@ -61,7 +61,7 @@ describe('a tidal volume below its usual minimum', () => {
   });
 
   it('`vt 0.45 mL` and `vt 40 mL` are unusual (PN302), as is 100 mL for an 82 kg patient; 400 mL is not', () => {
-    expect(findings('@ 08:00\nvent vt 0.45 mL', 'PN302')[0]?.message).toBe('Tidal volume 0.45 mL is unusual (usually 50 mL to 1200 mL): check the unit and the transcription. In L it would be usual.');
+    expect(findings('@ 08:00\nvent vt 0.45 mL', 'PN302')[0]?.message).toBe('Tidal volume 0.45 mL is unusual (usually 50 mL to 1200 mL): check the unit and the transcription. As `0.45 L` it would be usual.');
     expect(findings('@ 08:00\nvent vt 40 mL', 'PN302')).toHaveLength(1);
     expect(findings('patient weight 82 kg\n@ 08:00\nvent vt 100 mL', 'PN302')[0]?.message).toBe('Tidal volume 100 mL is unusual (usually 164 mL to 1200 mL): check the unit and the transcription.');
     expect(findings('patient weight 82 kg\n@ 08:00\nvent vt 400 mL', 'PN302')).toEqual([]);

@@ -15,7 +15,7 @@ describe('usual bounds at the precision written', () => {
     expect(unusual('@ 08:00\nabg ph 7.10, pco2 20.0 kPa, po2 9.0 kPa')).toEqual([]);
     expect(unusual('units gas kPa\n@ 08:00\nabg 7.10/20.0/9.0')).toEqual([]);
     const [f] = unusual('@ 08:00\nabg ph 7.10, pco2 20.1 kPa, po2 9.0 kPa');
-    expect(f?.message).toBe('PaCO2 20.1 kPa is unusual (usually 2.0 kPa to 20.0 kPa): check the unit and the transcription. In mmHg it would be usual.');
+    expect(f?.message).toBe('PaCO2 20.1 kPa is unusual (usually 2.0 kPa to 20.0 kPa): check the unit and the transcription. As `20.1 mmHg` it would be usual.');
   });
 
   it('more decimals narrow the margin: 20.00 kPa stands for 19.995–20.005 kPa, which holds 150 mmHg (19.998 kPa); 20.01 kPa does not', () => {

@@ -318,7 +318,10 @@ export const unusualValue = defineCheck({
     // told that Hz belongs to HFOV, and offered /min where the number is usual there.
     const hint = rateHint(stated, at);
     const other = hint?.fix ? { unit: 'Hz', fix: hint.fix } : hint?.slip === false ? null : otherUnitFix(field, stated, soft);
-    const otherText = hint?.fix ? '' : other ? ` In ${other.unit} it would be usual.` : '';
+    // The number with the other unit, as it would be written (`As \`45 in\``): a unit's symbol alone
+    // can read as a word of the sentence (`In in it would be usual`).
+    const written = stated.item.value?.kind === 'number' ? `${stated.item.value.text} ` : '';
+    const otherText = hint?.fix ? '' : other ? ` As \`${written}${other.unit}\` it would be usual.` : '';
     ctx.report({
       range: toRange(stated.line, stated.item.value?.span ?? stated.item.span),
       // pH has no unit to check.
