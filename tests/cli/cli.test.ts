@@ -214,7 +214,7 @@ describe('pneumark show', async () => {
     const out = io();
     await run(['show', 'samples/home-oxygen-exacerbation.pneu'], out);
     const [first] = out.out().split('\n');
-    expect(first).toBe('samples/home-oxygen-exacerbation.pneu  4 timepoints  17 info');
+    expect(first).toBe('samples/home-oxygen-exacerbation.pneu  4 timepoints  1 warning, 17 info');
   });
 
   it('shows a value whose unit could not be read as written, never as a unit without its number', async () => {
