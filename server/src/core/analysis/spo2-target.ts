@@ -9,6 +9,7 @@
 import type { Settings } from '../settings';
 import type { InputValue, ValuesInForce } from './model';
 import { fio2InForce, ROOM_AIR_FIO2 } from '../derive/context';
+import { deviceInForce } from './noninvasive-support';
 import { formatNumber } from '../util/format';
 
 export const SPO2_TARGET_FIELD = 'spo2_target';
@@ -55,12 +56,11 @@ export function standing(spo2Pct: number, target: Spo2Target): 'below' | 'within
 /**
  * What the patient breathes at a timepoint: supplemental oxygen where a device other than room air
  * is in force or an FiO2 above 0.21 (written on an oxygen, vent or gas line), with what says so
- * (`cannula`, `FiO2 0.40`); air where the device is room air or the FiO2 0.21; null where the note
+ * (`cannula`, `FiO2 0.40`; the device read through `deviceInForce`, as the rest of the core reads it); air where the device is room air or the FiO2 0.21; null where the note
  * says neither.
  */
 export function breathing(values: ValuesInForce): { readonly onOxygen: boolean; readonly how: string } | null {
-  const device = values.get('device');
-  const word = device !== undefined && device.stated.usable ? device.stated.word : null;
+  const word = deviceInForce(values);
   if (word !== null && word !== 'room air') return { onOxygen: true, how: word };
   const fio2 = fio2InForce(values);
   if (fio2 !== null && fio2 > ROOM_AIR_FIO2 + 1e-9) return { onOxygen: true, how: `FiO2 ${formatNumber(fio2, 2)}` };

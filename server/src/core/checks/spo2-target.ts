@@ -6,7 +6,7 @@
  * written.
  */
 import type { InputValue } from '../analysis/model';
-import { breathing, targetInForce, targetText, type Spo2Target } from '../analysis/spo2-target';
+import { breathing, standing, targetInForce, targetText, type Spo2Target } from '../analysis/spo2-target';
 import { carriedFromText, deviceShown, gasPressureText, showsKpa, statedGasText, timeText } from '../present';
 import { toRange } from '../syntax/tree';
 import type { Range } from '../types';
@@ -67,7 +67,7 @@ export const spo2AboveTarget = defineCheck({
   source: BTS_2017,
   runTimepoint(ctx) {
     const found = spo2AndTarget(ctx);
-    if (found === null || found.value <= found.target.highPct) return;
+    if (found === null || standing(found.value, found.target) !== 'above') return;
     const air = breathing(ctx.timepoint.values);
     if (air === null || !air.onOxygen) return;
     ctx.report({
@@ -92,7 +92,7 @@ export const spo2BelowTarget = defineCheck({
   source: BTS_2017,
   runTimepoint(ctx) {
     const found = spo2AndTarget(ctx);
-    if (found === null || found.value >= found.target.lowPct) return;
+    if (found === null || standing(found.value, found.target) !== 'below') return;
     const air = breathing(ctx.timepoint.values);
     const on = air === null ? ' (neither oxygen nor room air written)' : air.onOxygen ? ` on oxygen (${deviceShown(air.how)})` : ' on room air';
     ctx.report({
