@@ -9,7 +9,7 @@ import { BASE_EXCESS_HB_SPAN_G_DL, BASE_EXCESS_TOLERANCE_MMOL_L, SOURCES, baseEx
 import { toRange } from '../syntax/tree';
 import type { Fix } from '../types';
 import { formatAgainst, formatNumber, writtenDecimals } from '../util/format';
-import { defineCheck, type TimepointContext } from './check';
+import { defineCheck, usableNumber, type TimepointContext } from './check';
 
 export const baseExcessDisagrees = defineCheck({
   code: 'PN415',
@@ -49,11 +49,9 @@ interface GasFields {
 const ARTERIAL: GasFields = { ph: 'ph', hco3: 'hco3', section: 'abg', words: '' };
 const VENOUS: GasFields = { ph: 'ph_venous', hco3: 'hco3_venous', section: 'vbg', words: 'venous ' };
 
-/** A usable number stated at this timepoint for a field (a gas value is in force only where stated). */
+/** A usable number stated at this timepoint for a field (a gas or lab value is in force only where stated: `usableNumber` finds it there or not at all). */
 function statedHere(tp: Timepoint, id: string): StatedValue | null {
-  if (tp.values.originOf(id) !== 'here') return null;
-  const input = tp.values.get(id);
-  return input && input.stated.usable && input.stated.value !== null ? input.stated : null;
+  return usableNumber(tp, id)?.input.stated ?? null;
 }
 
 /** The Hb of the gas line itself where it states one, else the Hb stated at this timepoint; null for none. */
