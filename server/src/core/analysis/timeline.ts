@@ -41,6 +41,7 @@
  * holds a value from a timepoint whose label reads like a line number (`@ 08:00 see line 7`: its
  * findings may name that timepoint by its label, unquoted, see `namesLine`).
  */
+import { SPO2_TARGET_FIELD } from './spo2-target';
 import { canonicalWord, FIELDS, type FieldDef } from '../fields/registry';
 import { sectionById, type SectionId } from '../fields/sections';
 import type { Settings } from '../settings';
@@ -609,7 +610,7 @@ function processBlock(lines: readonly LineNode[], start: number, end: number, in
 }
 
 /** The field held apart as the SpO2 target (`CarryState.target`). */
-const TARGET = 'spo2_target';
+const TARGET = SPO2_TARGET_FIELD;
 
 /**
  * Moves the SpO2 targets among `stated[from, to)` (an oxygen line's values) after its other values,
