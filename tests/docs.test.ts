@@ -26,6 +26,14 @@ describe('check documentation', () => {
     expect(readFileSync('docs/checks.md', 'utf8')).toBe(renderCheckDocs());
   });
 
+  it('lists the checks in code order, so docs/checks.md and the settings list read PN101 to PN900 in turn', () => {
+    // A check added to a range goes after the last of its range, not at the end of the list.
+    const codes = CHECKS.map((c) => c.code);
+    expect(codes).toEqual([...codes].sort());
+    const headings = [...readFileSync('docs/checks.md', 'utf8').matchAll(/^#+ .*?(PN\d{3})/gm)].map((m) => m[1]);
+    expect(headings).toEqual(codes);
+  });
+
   it('grammar/README.md carries the current tables of blanks, of keys and units, and of derived values', () => {
     const doc = readFileSync('grammar/README.md', 'utf8');
     expect(doc).toContain(FIELD_TABLE_START);
