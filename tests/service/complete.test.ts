@@ -216,7 +216,7 @@ describe('units', () => {
     expect(labels('vent fio2 0.4 |')).not.toContain('%');
     expect(labels('vent fio2 0.4 |')).toContain('peep');
     expect(labels('abg fio2 1 |')).not.toContain('%');
-    expect(labels('oxygen venturi, fio2 .28 |')).toEqual(['flow', 'spo2_target']);
+    expect(labels('oxygen venturi, fio2 .28 |')).toEqual(['flow', 'target']);
     expect(labels('vent fio2 0.4%|')).toEqual([]);
     // A percentage still gets its unit.
     expect(labels('vent fio2 40 |')[0]).toBe('%');
@@ -225,15 +225,15 @@ describe('units', () => {
 
   it('offers the keys of the line\'s device: IPAP and EPAP for NIV, a level for CPAP, neither for others (and the SpO2 target last, beside any device)', () => {
     // NIV and CPAP are set by their pressures and FiO2: those first, the flow (a bleed-in of oxygen) last.
-    expect(labels('oxygen niv |')).toEqual(['ipap', 'epap', 'fio2', 'flow', 'spo2_target']);
-    expect(labels('oxygen cpap |')).toEqual(['level', 'fio2', 'flow', 'spo2_target']);
-    expect(labels('oxygen cpap 8 |')).toEqual(['cmH2O', 'mbar', 'fio2', 'flow', 'spo2_target']);
-    expect(labels('oxygen niv ipap 14, |')).toEqual(['epap', 'fio2', 'flow', 'spo2_target']);
-    expect(labels('oxygen device niv, |')).toEqual(['ipap', 'epap', 'fio2', 'flow', 'spo2_target']);
+    expect(labels('oxygen niv |')).toEqual(['ipap', 'epap', 'fio2', 'flow', 'target']);
+    expect(labels('oxygen cpap |')).toEqual(['level', 'fio2', 'flow', 'target']);
+    expect(labels('oxygen cpap 8 |')).toEqual(['cmH2O', 'mbar', 'fio2', 'flow', 'target']);
+    expect(labels('oxygen niv ipap 14, |')).toEqual(['epap', 'fio2', 'flow', 'target']);
+    expect(labels('oxygen device niv, |')).toEqual(['ipap', 'epap', 'fio2', 'flow', 'target']);
     // Devices that set a flow keep the flow first.
-    expect(labels('oxygen cannula |')).toEqual(['flow', 'fio2', 'spo2_target']);
-    expect(labels('oxygen hfnc 50 |')).toEqual(['L/min', 'fio2', 'spo2_target']);
-    expect(labels('oxygen mask, |')).toEqual(['flow', 'fio2', 'spo2_target']);
+    expect(labels('oxygen cannula |')).toEqual(['flow', 'fio2', 'target']);
+    expect(labels('oxygen hfnc 50 |')).toEqual(['L/min', 'fio2', 'target']);
+    expect(labels('oxygen mask, |')).toEqual(['flow', 'fio2', 'target']);
   });
 
   it('offers no pressure of NIV or CPAP beside any device that gives none (PN318 would report it), however the device is written', () => {
@@ -241,7 +241,7 @@ describe('units', () => {
       const offered = labels(`oxygen ${device}, |`);
       for (const key of ['ipap', 'epap', 'level', 'pressure']) expect(offered, `${device}: ${key}`).not.toContain(key);
     }
-    expect(labels('oxygen bilevel |')).toEqual(['ipap', 'epap', 'fio2', 'flow', 'spo2_target']);
+    expect(labels('oxygen bilevel |')).toEqual(['ipap', 'epap', 'fio2', 'flow', 'target']);
   });
 
   it('offers a section\'s own keys first, then those it shares with other lines', () => {
@@ -250,8 +250,8 @@ describe('units', () => {
   });
 
   it('offers no flow or pressure on a room-air line (room air has no device to set)', () => {
-    expect(labels('oxygen room air |')).toEqual(['fio2', 'spo2_target']);
-    expect(labels('oxygen ra, |')).toEqual(['fio2', 'spo2_target']);
+    expect(labels('oxygen room air |')).toEqual(['fio2', 'target']);
+    expect(labels('oxygen ra, |')).toEqual(['fio2', 'target']);
     expect(labels('oxygen air fio2 21 |')[0]).toBe('%');
     expect(labels('oxygen air fio2 21 |')).not.toContain('flow');
     expect(labels('oxygen cannula |')).toContain('flow');

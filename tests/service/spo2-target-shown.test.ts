@@ -7,7 +7,7 @@ import { parse } from 'csv-parse/sync';
 import { describe, expect, it } from 'vitest';
 import { checkNote } from '../../server/src/core/check-note';
 import { exportColumns, timepointRows, toCsv } from '../../server/src/core/export';
-import { completionsAt, hoverAt } from '../../server/src/core/service';
+import { applyEdits, completionsAt, hoverAt } from '../../server/src/core/service';
 import { noteAt } from './cursor';
 
 const plain = { redactProse: false, shiftDays: 0 } as const;
@@ -39,9 +39,23 @@ describe('the hover on an SpO2 value', () => {
 });
 
 describe('completion on an oxygen line', () => {
-  it('offers the target by its key, after the device\'s own settings', () => {
+  it('offers the target by its short key, as the format\'s other keys are offered (`co`, not `cardiac_output`), after the device\'s own settings', () => {
     const { result, position } = noteAt('@ day 1 09:00\noxygen cannula 2, |');
-    expect(completionsAt(result, position).map((c) => c.label)).toEqual(['fio2', 'spo2_target']);
+    expect(completionsAt(result, position).map((c) => c.label)).toEqual(['fio2', 'target']);
+  });
+
+  it('completes `tar` to `target`, which reads a range typed after it', () => {
+    const { result, position } = noteAt('@ day 1 09:00\noxygen cannula 2, tar|');
+    const offered = completionsAt(result, position);
+    expect(offered.map((c) => c.label)).toEqual(['target']);
+    expect(offered[0]!.detail).toBe('SpO2 target · %');
+    const text = applyEdits('@ day 1 09:00\noxygen cannula 2, tar', [{ range: offered[0]!.replace!, newText: offered[0]!.insertText }]);
+    expect(text).toBe('@ day 1 09:00\noxygen cannula 2, target');
+    expect(checkNote(`${text} 88-92`).findings).toEqual([]);
+  });
+
+  it('still reads the long key, which completion no longer offers', () => {
+    expect(checkNote('@ day 1 09:00\noxygen cannula 2, spo2_target 88-92').findings).toEqual([]);
   });
 });
 
