@@ -427,11 +427,13 @@ function keyValueRule(units, keys) {
 }
 
 /**
- * Two numbers joined by one hyphen or en dash in one chunk, the range a key whose pair is so joined
- * takes (`target 88-92`, the field registry's `join: 'dash'`); no sign after the dash, as the parser
- * reads it.
+ * Two numbers joined by one hyphen or en dash, the range a key whose pair is so joined takes
+ * (`target 88-92`, the field registry's `join: 'dash'`); no sign after the dash, as the parser
+ * reads it. Blanks may stand around the dash (`88 - 92`, `88 – 92`), the first number then starting
+ * with a digit, as the parser reads it too (`readSpacedDashGroup`).
  */
-const RANGE = '(?:[0-9]+(?:[.,][0-9]+)?|\\.[0-9]+)[-–](?:[0-9]+(?:[.,][0-9]+)?|\\.[0-9]+)';
+const RANGE_NUMBER = '(?:[0-9]+(?:[.,][0-9]+)?|\\.[0-9]+)';
+const RANGE = `(?:${RANGE_NUMBER}[-–]|[0-9]+(?:[.,][0-9]+)?\\s*[-–]\\s*)[0-9]+(?:[.,][0-9]+)?`;
 const range = { name: sc('meta.pair'), patterns: [{ include: '#range-parts' }] };
 
 /** A key that takes a range (`target 88-92`, `target 88–92 %`), its unit glued to it or after blanks. */

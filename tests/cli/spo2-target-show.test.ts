@@ -10,12 +10,12 @@ import { describe, expect, it } from 'vitest';
 import { run } from '../../server/src/cli/main';
 import { memoryIo } from '../helpers/memory-io';
 
-async function show(note: string, config: string | null = null): Promise<string[]> {
+async function show(note: string, config: string | null = null, command = 'show'): Promise<string[]> {
   const dir = mkdtempSync(join(tmpdir(), 'pneumark-target-'));
   writeFileSync(join(dir, 'n.pneu'), note);
   if (config !== null) writeFileSync(join(dir, 'pneumark.config.json'), config);
   const io = memoryIo({ cwd: dir, env: { NO_COLOR: '1' }, tty: false });
-  await run(['show', 'n.pneu'], io);
+  await run([command, 'n.pneu'], io);
   return io.out().split('\n');
 }
 
@@ -32,5 +32,22 @@ describe('the SpO2 target in `pneumark show`', () => {
     expect(out).toContain('  target   SpO2 target 88–92 % (spo2Target setting)');
     expect(out.some((l) => l.includes('PN327') && l.includes('SpO2 96 % on oxygen (cannula) is above the target 88–92 % of the spo2Target setting.'))).toBe(true);
     expect((await show('@ day 1 09:00\noxygen cannula 2 L/min\nvitals spo2 96\n')).some((l) => l.startsWith('  target '))).toBe(false);
+  });
+});
+
+describe('a target written with blanks around its dash, or with a decimal end, on the command line', () => {
+  it('`show` reads `88 – 92` as the range 88–92 %, and `fmt` writes it `88-92`', async () => {
+    const note = '@ day 1 09:00\noxygen    cannula 2 L/min, target 88 – 92 %\nvitals    spo2 96\n';
+    const out = await show(note);
+    expect(out).toContain('  oxygen   device cannula · flow 2.0 L/min · SpO2 target 88–92 %');
+    expect(out.some((l) => l.includes('PN327') && l.includes('above the target 88–92 % written at this timepoint'))).toBe(true);
+    expect(out.some((l) => l.includes('PN102') || l.includes('PN105'))).toBe(false);
+    expect(await show(note, null, 'fmt')).toEqual(['@ day 1 09:00', 'oxygen    cannula 2 L/min, target 88-92 %', 'vitals    spo2 96', '']);
+  });
+
+  it('`show` gives a decimal end as written and says PN302 with the rounded range', async () => {
+    const out = await show('@ day 1 09:00\noxygen cannula 2 L/min, target 88.5-92\n');
+    expect(out).toContain('  oxygen   device cannula · flow 2.0 L/min · SpO2 target 88.5–92 %');
+    expect(out.some((l) => l.includes('PN302') && l.includes('rounded, it is 89-92'))).toBe(true);
   });
 });

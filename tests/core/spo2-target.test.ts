@@ -59,6 +59,98 @@ describe('the SpO2 target field', () => {
   });
 });
 
+describe('a target written with blanks around its dash', () => {
+  it('reads as the same range, with a hyphen or an en dash, blanks on both sides or one, the unit glued or apart', () => {
+    for (const written of ['target 88 - 92', 'target 88 – 92', 'target 88 - 92 %', 'target 88 – 92%', 'target 88 -92', 'target 88- 92 %', 'target 88  -  92', 'spo2_target 88 – 92']) {
+      const text = `@ day 1 09:00\noxygen cannula 2 L/min, ${written}, fio2 0.3`;
+      expect(codes(text), written).toEqual([]);
+      expect(targets(text), written).toEqual(['88-92']);
+    }
+  });
+
+  it('keeps the range\'s own place on the line: the pair spans the two numbers, the unit after them', () => {
+    const line = checkNote('@ day 1 09:00\noxygen cannula 2, target 88 – 92 %').analysis.tree.lines[1]!;
+    const item = line.kind === 'section' ? line.items.find((i) => i.keyName === 'target') : undefined;
+    expect(item?.value?.kind).toBe('pair');
+    expect(item?.value?.text).toBe('88 – 92');
+    expect(item?.unit?.text).toBe('%');
+    expect(item?.value?.kind === 'pair' ? item.value.parts.map((p) => p.text) : null).toEqual(['88', '92']);
+  });
+
+  it('is impossible reversed as glued (PN301), and offered swapped in the canonical shape', () => {
+    const f = findings('@ day 1 09:00\noxygen cannula 2, target 92 - 88', 'PN301');
+    expect(f.map((x) => x.fixes?.[0]?.edits[0]?.newText)).toEqual(['88-92']);
+  });
+
+  it('reads no range from a dash with no number after it, or a sign after it: not read (PN102), the rest stray (PN105)', () => {
+    for (const written of ['target 88 -', 'target 88 - -92', 'target 88 -, 92']) {
+      const text = `@ day 1 09:00\noxygen cannula 2, ${written}`;
+      expect(codes(text), written).toContain('PN102');
+      expect(targets(text), written).toEqual([null]);
+    }
+  });
+});
+
+describe('a target with a decimal end (PN302)', () => {
+  // Targets are prescribed in whole percents, as oximeters show SpO2: common practice, no source.
+  it('is a warning, used as written, with the rounded range offered', () => {
+    const r = checkNote('@ day 1 09:00\noxygen cannula 2, target 88.5-92\nvitals spo2 88');
+    const f = r.findings.filter((x) => x.code === 'PN302');
+    expect(f).toHaveLength(1);
+    expect(f[0]!.severity).toBe('warning');
+    expect(f[0]!.message).toBe('SpO2 target 88.5-92 % is not written in whole percents, as SpO2 targets are prescribed and oximeters show SpO2; it is used as written (88.5–92 %). Check the transcription: rounded, it is 89-92.');
+    expect(f[0]!.fixes?.map((x) => [x.title, x.edits[0]!.newText])).toEqual([['Write `89-92`', '89-92']]);
+    expect(f[0]!.range).toEqual({ start: { line: 1, character: 25 }, end: { line: 1, character: 32 } });
+    // Used as written: 88 % is below 88.5 %, and the message does not round the end onto the SpO2.
+    expect(targets('@ day 1 09:00\noxygen cannula 2, target 88.5-92')).toEqual(['88.5-92']);
+    expect(r.findings.filter((x) => x.code === 'PN328').map((x) => x.message)).toEqual(['SpO2 88 % on oxygen (cannula) is below the target 88.5–92 % written at this timepoint.']);
+  });
+
+  it('shows an SpO2 with the decimals that keep it on its side of an end (92.4 is not 92 above 88–92 %)', () => {
+    expect(findings('@ day 1 09:00\noxygen cannula 2, target 88-92\nvitals spo2 92.4', 'PN327').map((x) => x.message))
+      .toEqual(['SpO2 92.4 % on oxygen (cannula) is above the target 88–92 % written at this timepoint.']);
+    expect(findings('@ day 1 09:00\noxygen cannula 2, target 88.5-92\nvitals spo2 88.4', 'PN328').map((x) => x.message))
+      .toEqual(['SpO2 88 % on oxygen (cannula) is below the target 88.5–92 % written at this timepoint.']);
+  });
+
+  it('offers no rounding that would make the ends equal or reversed, and says nothing of whole ends written with a decimal point', () => {
+    const f = findings('@ day 1 09:00\noxygen cannula 2, target 91.6-92.4', 'PN302');
+    expect(f).toHaveLength(1);
+    expect(f[0]!.fixes ?? []).toEqual([]);
+    expect(f[0]!.message.endsWith('Check the transcription.')).toBe(true);
+    expect(codes('@ day 1 09:00\noxygen cannula 2, target 88.0-92')).toEqual([]);
+  });
+
+  it('is left to PN301 where the range is not used (reversed or out of bounds)', () => {
+    expect(codes('@ day 1 09:00\noxygen cannula 2, target 92.5-88')).toEqual(['PN301']);
+    expect(codes('@ day 1 09:00\noxygen cannula 2, target 69.5-92')).toEqual(['PN301']);
+  });
+
+  it('rounds the ends with blanks and a decimal comma too (PN103 says the comma)', () => {
+    const r = checkNote('@ day 1 09:00\noxygen cannula 2, target 88,5 - 92 %');
+    expect(r.findings.map((x) => x.code)).toEqual(['PN103', 'PN302']);
+    expect(r.findings[1]!.fixes?.[0]?.edits[0]?.newText).toBe('89-92');
+  });
+});
+
+describe('a target before the first timepoint', () => {
+  it('on an oxygen line there, which opens the implicit first timepoint (`start`), is in force from it on', () => {
+    const note = 'patient age 71 y\noxygen target 88-92\n@ day 1 09:00\noxygen cannula 2 L/min\nvitals spo2 95\n@ 10:00\noxygen target 94-98\nvitals spo2 95';
+    expect(targets(note)).toEqual(['88-92', '88-92', '94-98']);
+    // It overrides the setting, and a later target overrides it.
+    expect(targets(note, { spo2Target: '94-98' })).toEqual(['88-92', '88-92', '94-98']);
+    expect(findings(note, 'PN327').map((f) => f.message)).toEqual(['SpO2 95 % on oxygen (cannula) is above the target 88–92 % in force since line 2.']);
+  });
+
+  it('on a header line (patient, place, units), where it is no key: reported as an unknown key that belongs on an oxygen line (PN201), never ignored in silence', () => {
+    for (const line of ['patient age 71 y, target 88-92', 'place altitude 300 m, target 88-92', 'units gas kPa, target 88-92']) {
+      const f = findings(`${line}\n@ day 1 09:00\noxygen cannula 2\nvitals spo2 95`, 'PN201');
+      expect(f.map((x) => x.message), line).toEqual([`\`target\` is not a key of ${line.split(' ')[0]} lines (\`target\` belongs on an oxygen line).`]);
+      expect(targets(`${line}\n@ day 1 09:00\noxygen cannula 2`), line).toEqual([null]);
+    }
+  });
+});
+
 describe('the SpO2 target in force', () => {
   it('carries to later timepoints until another target is written, through room air, a new device and ventilation', () => {
     const note = [

@@ -7,7 +7,7 @@ import { parse } from 'csv-parse/sync';
 import { describe, expect, it } from 'vitest';
 import { checkNote } from '../../server/src/core/check-note';
 import { exportColumns, timepointRows, toCsv } from '../../server/src/core/export';
-import { applyEdits, completionsAt, hoverAt } from '../../server/src/core/service';
+import { applyEdits, completionsAt, formatNote, hoverAt } from '../../server/src/core/service';
 import { noteAt } from './cursor';
 
 const plain = { redactProse: false, shiftDays: 0 } as const;
@@ -22,19 +22,54 @@ describe('the hover on an SpO2 value', () => {
 
   it('says where it stands against the target in force, and where the target comes from', () => {
     // 90 % is within 88–92 %, 95 % above it, 85 % below it (the ends belong to the range).
-    expect(markdown(note('9|0'))).toContain('SpO2 target: **within** target 88–92 % (in force since day 1 09:00, line 2).');
-    expect(markdown(note('9|5'))).toContain('SpO2 target: **above** target 88–92 %');
-    expect(markdown(note('8|5'))).toContain('SpO2 target: **below** target 88–92 %');
+    expect(markdown(note('9|0'))).toContain('SpO2 target: **within** 88–92 % (in force since day 1 09:00, line 2).');
+    expect(markdown(note('9|5'))).toContain('SpO2 target: **above** 88–92 %');
+    expect(markdown(note('8|5'))).toContain('SpO2 target: **below** 88–92 %');
     expect(markdown(note('9|2'))).toContain('**within**');
   });
 
   it('names the setting\'s target where the note writes none, and says nothing with no target', () => {
-    expect(markdown('@ day 1 09:00\nvitals spo2 9|5', { spo2Target: '94-98' })).toContain('SpO2 target: **within** target 94–98 % (the spo2Target setting\'s).');
+    expect(markdown('@ day 1 09:00\nvitals spo2 9|5', { spo2Target: '94-98' })).toContain('SpO2 target: **within** 94–98 % (the spo2Target setting\'s).');
     expect(markdown('@ day 1 09:00\nvitals spo2 9|5')).not.toContain('SpO2 target');
   });
 
   it('on the target itself, says it carries until another target is written', () => {
     expect(markdown('@ day 1 09:00\noxygen cannula 2, tar|get 88-92')).toContain('Carries forward: yes, until another target is written; a new device, room air and a `vent` line leave it in force.');
+  });
+});
+
+describe('a target written with blanks around its dash, or with a decimal end', () => {
+  it('hovers as the range it is read as, on its key and on its numbers', () => {
+    for (const marked of ['@ day 1 09:00\noxygen cannula 2, tar|get 88 - 92 %', '@ day 1 09:00\noxygen cannula 2, target 8|8 – 92', '@ day 1 09:00\noxygen cannula 2, target 88 – 9|2']) {
+      const md = markdown(marked);
+      expect(md, marked).toContain('SpO2 target');
+      expect(md, marked).toContain('88–92 %');
+      expect(md, marked).toContain('Carries forward: yes, until another target is written');
+    }
+  });
+
+  it('is written `88-92` by the formatter, which reads back as the same range', () => {
+    const text = '@ day 1 09:00\noxygen    cannula 2 L/min, target 88 – 92 %\noxygen    target 88 -92\noxygen    target 88–92';
+    const formatted = formatNote(text);
+    expect(formatted.split('\n').slice(1)).toEqual(['oxygen    cannula 2 L/min, target 88-92 %', 'oxygen    target 88-92', 'oxygen    target 88-92']);
+    expect(formatNote(formatted)).toBe(formatted);
+  });
+
+  it('on an SpO2 under a target written before the first timepoint (no time), says the line as PN327 does', () => {
+    expect(markdown('oxygen target 88-92\n@ day 1 09:00\noxygen cannula 2\nvitals spo2 9|5')).toContain('SpO2 target: **above** 88–92 % (in force since line 1).');
+  });
+
+  it('on an SpO2 beside a decimal target, the hover gives the ends as written, not rounded', () => {
+    expect(markdown('@ day 1 09:00\noxygen cannula 2, target 88.5-92\nvitals spo2 8|8')).toContain('SpO2 target: **below** 88.5–92 % (written on line 2).');
+  });
+
+  it('a decimal target\'s quick fix writes the rounded range, after which nothing is reported', () => {
+    const text = '@ day 1 09:00\noxygen cannula 2, target 88.5-92';
+    const r = checkNote(text);
+    const fix = r.findings.find((f) => f.code === 'PN302')!.fixes![0]!;
+    const fixed = applyEdits(text, fix.edits);
+    expect(fixed).toBe('@ day 1 09:00\noxygen cannula 2, target 89-92');
+    expect(checkNote(fixed).findings).toEqual([]);
   });
 });
 
@@ -74,5 +109,12 @@ describe('the CSV columns of the target', () => {
       .map((r) => [r.spo2_target_low_pct, r.spo2_target_high_pct]);
     expect(rows('@ day 1 09:00\nvitals spo2 93', { spo2Target: '92-96' })).toEqual([['92', '96']]);
     expect(rows('@ day 1 09:00\noxygen cannula 2, target 92-88')).toEqual([['', '']]);
+  });
+
+  it('give a range written with blanks as its ends, and a decimal end as written (PN302 says it)', () => {
+    const rows = (text: string) => (parse(toCsv(exportColumns(), timepointRows('a.pneu', checkNote(text), plain)), { columns: true }) as Record<string, string>[])
+      .map((r) => [r.spo2_target_low_pct, r.spo2_target_high_pct]);
+    expect(rows('@ day 1 09:00\noxygen cannula 2, target 88 – 92 %')).toEqual([['88', '92']]);
+    expect(rows('@ day 1 09:00\noxygen cannula 2, target 88.5-92')).toEqual([['88.5', '92']]);
   });
 });

@@ -34,6 +34,19 @@ export function formatStated(s: StatedValue, unitId?: string): string {
   return `${number}${unit}`;
 }
 
+/**
+ * A range (`target 88-92`) as people read it, `88–92`: each end with its own decimals as written
+ * (`88.5–92`, not `88.5–92.0`), as a range of whole percents is the rule and a decimal end the slip
+ * PN302 points out.
+ */
+function rangeShown(s: StatedValue, canonical: UnitDef, target: UnitDef): string {
+  const written = s.item.value?.kind === 'pair' ? s.item.value.parts : null;
+  return s.parts!.map((v, k) => {
+    const text = written?.[k]?.text;
+    return formatNumber(convert(v, canonical, target) ?? v, Math.max(decimalsFor(target.id, s.field.decimals), text === undefined ? 0 : writtenDecimals(text)));
+  }).join('–');
+}
+
 /** The number(s) of a stated value in its canonical unit (or `unitId`), without the unit; null when it has none. */
 export function statedNumber(s: StatedValue, unitId?: string): string | null {
   const field = s.field;
@@ -45,7 +58,8 @@ export function statedNumber(s: StatedValue, unitId?: string): string | null {
   if (field.dimension === 'age' && s.readUnit !== null && s.readUnit !== 'y' && target.id === 'y' && s.value !== null && !s.parts) return formatAgeYears(convert(s.value, canonical, target) ?? s.value);
   const decimals = Math.max(decimalsFor(target.id, field.decimals), writtenPrecisionIn(s, target));
   const show = (v: number) => formatNumber(convert(v, canonical, target) ?? v, decimals);
-  return s.parts ? s.parts.map(show).join(field.join === 'dash' ? '–' : '/') : s.value !== null ? show(s.value) : null;
+  if (s.parts && field.join === 'dash') return rangeShown(s, canonical, target);
+  return s.parts ? s.parts.map(show).join('/') : s.value !== null ? show(s.value) : null;
 }
 
 /** The value and unit as the note wrote them: `71 mmhgg`. */

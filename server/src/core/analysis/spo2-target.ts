@@ -10,7 +10,7 @@ import type { Settings } from '../settings';
 import type { InputValue, ValuesInForce } from './model';
 import { fio2InForce, ROOM_AIR_FIO2 } from '../derive/context';
 import { deviceInForce } from './noninvasive-support';
-import { formatNumber } from '../util/format';
+import { formatAgainst, formatNumber, formatShort } from '../util/format';
 
 export const SPO2_TARGET_FIELD = 'spo2_target';
 
@@ -43,9 +43,17 @@ export function targetInForce(values: ValuesInForce, settings: Pick<Settings, 's
   return SETTING_TARGETS[settings.spo2Target] ?? null;
 }
 
-/** `88–92 %`. */
+/** `88–92 %`; an end written with decimals keeps them (`88.5–92 %`, PN302), never rounded onto another. */
 export function targetText(target: Spo2Target): string {
-  return `${formatNumber(target.lowPct, 0)}–${formatNumber(target.highPct, 0)} %`;
+  return `${formatShort(target.lowPct)}–${formatShort(target.highPct)} %`;
+}
+
+/**
+ * An SpO2 as a message beside a target shows it: a whole percent, or more decimals where rounding
+ * would put it on the other side of an end (88.6 beside 88.5–92 % is 88.6, not 89).
+ */
+export function spo2AgainstText(spo2Pct: number, target: Spo2Target): string {
+  return formatAgainst(spo2Pct, 0, target.lowPct, target.highPct);
 }
 
 /** Where an SpO2 stands against a target: below its lower end, within it (ends included), above its upper end. */

@@ -6,11 +6,10 @@
  * written.
  */
 import type { InputValue } from '../analysis/model';
-import { breathing, standing, targetInForce, targetText, type Spo2Target } from '../analysis/spo2-target';
+import { breathing, spo2AgainstText, standing, targetInForce, targetText, type Spo2Target } from '../analysis/spo2-target';
 import { carriedFromText, deviceShown, gasPressureText, showsKpa, statedGasText, timeText } from '../present';
 import { toRange } from '../syntax/tree';
 import type { Range } from '../types';
-import { formatNumber } from '../util/format';
 import { defineCheck, type TimepointContext } from './check';
 
 /** The published source of the targets (BTS 2017), read from memory. */
@@ -72,7 +71,7 @@ export const spo2AboveTarget = defineCheck({
     if (air === null || !air.onOxygen) return;
     ctx.report({
       range: toRange(found.spo2.stated.line, found.spo2.stated.item.span),
-      message: `SpO2 ${formatNumber(found.value, 0)} % on oxygen (${deviceShown(air.how)}) is above ${targetPhrase(ctx, found.target)}.`,
+      message: `SpO2 ${spo2AgainstText(found.value, found.target)} % on oxygen (${deviceShown(air.how)}) is above ${targetPhrase(ctx, found.target)}.`,
       ...relatedTarget(found.target),
     });
   },
@@ -97,7 +96,7 @@ export const spo2BelowTarget = defineCheck({
     const on = air === null ? ' (neither oxygen nor room air written)' : air.onOxygen ? ` on oxygen (${deviceShown(air.how)})` : ' on room air';
     ctx.report({
       range: toRange(found.spo2.stated.line, found.spo2.stated.item.span),
-      message: `SpO2 ${formatNumber(found.value, 0)} %${on} is below ${targetPhrase(ctx, found.target)}.`,
+      message: `SpO2 ${spo2AgainstText(found.value, found.target)} %${on} is below ${targetPhrase(ctx, found.target)}.`,
       ...relatedTarget(found.target),
     });
   },

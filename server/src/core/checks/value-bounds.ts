@@ -11,7 +11,7 @@ import { displayUnit, isReversedRange, isSaturationFraction } from '../analysis/
 import { decimalsFor, readUnitName, writtenDecimals } from '../present';
 import { convert, unitById, type UnitDef } from '../fields/units';
 import { toRange } from '../syntax/tree';
-import { formatAgainst, formatNumber } from '../util/format';
+import { formatAgainst, formatNumber, formatShort } from '../util/format';
 import { derivedValueOf } from '../derive/registry';
 import { defineCheck, type CheckContext, type CheckDef, type TimepointContext } from './check';
 import { inHfov } from './oscillation';
@@ -282,17 +282,22 @@ export const unusualValue = defineCheck({
   severity: 'warning',
   tags: ['plausibility'],
   doc: {
-    fires: 'A value is possible but outside the usual (soft) bounds of its field: worth a second look at the unit or the transcription. Low arterial gas pressures are not flagged where the barometric pressure is below 500 mmHg, since they are real at extreme altitude. A tidal volume is usual from 2 mL per kg of body size (the smaller of the weight and the predicted body weight in force), or from 50 mL where the note gives neither; in HFOV, which moves 1–3 mL/kg a breath, it has no usual minimum. In HFOV the set rate is the oscillation frequency, usual from 3 to 15 Hz (180–900 /min) rather than at most 60 /min: a number written bare or in /min that is such a frequency in Hz (`rate 5`) is reported with `Hz` offered; a rate written in Hz in another mode is reported where it is above 60 /min (1 Hz), with its usual maximum in both units and a word that Hz is usual in HFOV, and /min offered where the number is a whole one usual in /min (`rate 14 Hz` in VC; not `rate 1.004 Hz`, a frequency, as rates of breaths are set in whole breaths a minute). A number written in another unit than its field\'s own is compared at the precision written: `pco2 20.0 kPa` is 150.01 mmHg, yet to a tenth of a kPa it is the usual maximum of 150 mmHg, and is not reported. A saturation written as a fraction with no unit (`spo2 0.94`) is reported with the percentage offered, and is not used until it is rewritten. The usual minimum of height and weight is an adult\'s: it is not applied to a patient under 18 years (the age in force), whose usual maximum still is; for such a patient the inspiratory flow is usual from 2 L/min (an infant is given 4–10 L/min) rather than from an adult\'s 10 L/min, and a tidal volume has no usual minimum where the note gives no body size; a height is usual from a floor that rises with age, far below the shortest real child\'s: 24 cm until 16 weeks after birth (a girl born at 24 weeks is 24.0 cm at −3 SD, INTERGROWTH-21st), then the −3 SD of the shorter sex at the age corrected for a birth 16 weeks early, less 10 cm: in the first year the girls\' length-for-age in the WHO Child Growth Standards (46 cm at 8 months, 49 cm at 10 months, 52 cm at a year), after it the height-for-age by whole year, straight between them, in those standards to 4 years and in the WHO 2007 reference from 5, the girls\' but the boys\' at 10 to 13 years (63 cm at 2 years, 83 cm at 5, 107 cm at 10, 116 cm at 12, 132 cm at 17). A child\'s height below it is reported with a word that a disorder of growth can make it real; from a year on a bare height below it is still read in cm.',
+    fires: 'A value is possible but outside the usual (soft) bounds of its field: worth a second look at the unit or the transcription. Low arterial gas pressures are not flagged where the barometric pressure is below 500 mmHg, since they are real at extreme altitude. A tidal volume is usual from 2 mL per kg of body size (the smaller of the weight and the predicted body weight in force), or from 50 mL where the note gives neither; in HFOV, which moves 1–3 mL/kg a breath, it has no usual minimum. In HFOV the set rate is the oscillation frequency, usual from 3 to 15 Hz (180–900 /min) rather than at most 60 /min: a number written bare or in /min that is such a frequency in Hz (`rate 5`) is reported with `Hz` offered; a rate written in Hz in another mode is reported where it is above 60 /min (1 Hz), with its usual maximum in both units and a word that Hz is usual in HFOV, and /min offered where the number is a whole one usual in /min (`rate 14 Hz` in VC; not `rate 1.004 Hz`, a frequency, as rates of breaths are set in whole breaths a minute). A number written in another unit than its field\'s own is compared at the precision written: `pco2 20.0 kPa` is 150.01 mmHg, yet to a tenth of a kPa it is the usual maximum of 150 mmHg, and is not reported. A saturation written as a fraction with no unit (`spo2 0.94`) is reported with the percentage offered, and is not used until it is rewritten. The usual minimum of height and weight is an adult\'s: it is not applied to a patient under 18 years (the age in force), whose usual maximum still is; for such a patient the inspiratory flow is usual from 2 L/min (an infant is given 4–10 L/min) rather than from an adult\'s 10 L/min, and a tidal volume has no usual minimum where the note gives no body size; a height is usual from a floor that rises with age, far below the shortest real child\'s: 24 cm until 16 weeks after birth (a girl born at 24 weeks is 24.0 cm at −3 SD, INTERGROWTH-21st), then the −3 SD of the shorter sex at the age corrected for a birth 16 weeks early, less 10 cm: in the first year the girls\' length-for-age in the WHO Child Growth Standards (46 cm at 8 months, 49 cm at 10 months, 52 cm at a year), after it the height-for-age by whole year, straight between them, in those standards to 4 years and in the WHO 2007 reference from 5, the girls\' but the boys\' at 10 to 13 years (63 cm at 2 years, 83 cm at 5, 107 cm at 10, 116 cm at 12, 132 cm at 17). A child\'s height below it is reported with a word that a disorder of growth can make it real; from a year on a bare height below it is still read in cm. An SpO2 target with an end that is not a whole number (`target 88.5-92`) is reported too: targets are prescribed in whole percents, as oximeters show SpO2 (common practice, no source); it is used as written.',
     example: 'vitals hr 236',
-    fix: 'Confirm the value; if it is right, the warning can stay (or the check can be switched off in settings). Where the number is usual in the field\'s other unit (`vt 0.45 mL`, meant as L), a quick fix writes that unit.',
+    fix: 'Confirm the value; if it is right, the warning can stay (or the check can be switched off in settings). Where the number is usual in the field\'s other unit (`vt 0.45 mL`, meant as L), a quick fix writes that unit. An SpO2 target with a decimal end is offered its ends rounded to whole percents (`target 89-92`), where they stay in order.',
   },
-  source: 'field registry bounds; each field names its source (mostly common practice, no source); a child\'s height against the WHO Child Growth Standards 2006, the WHO growth reference for school-aged children and adolescents 2007 and INTERGROWTH-21st very preterm size at birth 2016 (read in their reproductions, physiology/growth.ts)',
+  source: 'field registry bounds; each field names its source (mostly common practice, no source); a child\'s height against the WHO Child Growth Standards 2006, the WHO growth reference for school-aged children and adolescents 2007 and INTERGROWTH-21st very preterm size at birth 2016 (read in their reproductions, physiology/growth.ts); an SpO2 target in whole percents, common practice, no source',
   ...valueCheck((ctx, stated, barometricMmhg, at) => {
     const field = stated.field;
     // Most values are within the usual bounds, which a low barometric pressure only widens: asked
     // first. A tidal volume's usual minimum follows the body size, which may raise it, a set rate's
     // the mode (HFOV), and a height's the age (`childHeightMinCm`: 132 cm at 17 years, above an
     // adult's 120): asked on.
+    // A range (an SpO2 target) has no usual bounds; an end that is no whole number is unusual for it.
+    if (field.join === 'dash') {
+      reportRangeDecimals(ctx, stated);
+      return;
+    }
     if (!field.soft || (!outOfBounds(stated, field.soft) && field.id !== 'vt' && field.id !== 'vent_rate' && field.id !== 'height')) return;
     if (stated.value !== null && stated.item.number !== null && isSaturationFraction(field, stated.item.number, stated.item)) {
       const written = stated.item.value!;
@@ -331,6 +336,33 @@ export const unusualValue = defineCheck({
     });
   }),
 });
+
+/**
+ * A range whose ends are not both whole numbers (`target 88.5-92`): an SpO2 target is prescribed
+ * in whole percents, as an oximeter shows SpO2 (common practice, no source), so a decimal end is
+ * more likely a slip than meant. A warning, not an error: the range is read and used as written
+ * (an SpO2 of 88 % is below 88.5–92 %), so no SpO2 goes unchecked for it. The range with its ends
+ * rounded to the nearest whole number (a half up) is offered, where that keeps the lower end below
+ * the upper (`91.6-92.4` would be 92-92: nothing offered). A range not used (reversed, or out of
+ * bounds: PN301) is left to PN301.
+ */
+function reportRangeDecimals(ctx: CheckContext, stated: StatedValue): void {
+  const parts = stated.parts;
+  const value = stated.item.value;
+  if (!stated.usable || parts === null || parts.length !== 2 || value?.kind !== 'pair') return;
+  const [low, high] = parts as [number, number];
+  if (Number.isInteger(low) && Number.isInteger(high)) return;
+  const lowWhole = Math.round(low);
+  const highWhole = Math.round(high);
+  const rounded = `${lowWhole}-${highWhole}`;
+  const range = toRange(stated.line, value.span);
+  const offered = lowWhole < highWhole;
+  ctx.report({
+    range,
+    message: `${asWritten(stated.field, stated)} is not written in whole percents, as SpO2 targets are prescribed and oximeters show SpO2; it is used as written (${formatShort(low)}–${formatShort(high)} %). Check the transcription${offered ? `: rounded, it is ${rounded}` : ''}.`,
+    ...(offered ? { fixes: [{ title: `Write \`${rounded}\``, edits: [{ range, newText: rounded }] }] } : {}),
+  });
+}
 
 /**
  * For a child's height below the floor of the age (`childHeightMinCm`, far below the shortest

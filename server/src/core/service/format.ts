@@ -6,7 +6,8 @@
  * with its flow) as written, followed by `, ` when a comma was written after it and by one
  * space otherwise; items `key value unit` with single spaces, joined with `, `, and a comma
  * written after the last item kept. A unit glued to its number (`89%`) is written apart (`89 %`)
- * when it is a known unit. Note lines keep their prose exactly. Timepoint lines read
+ * when it is a known unit. A range (`target 88 - 92`, `88 – 92`, `88–92`) is written `88-92`, its two
+ * numbers joined by a hyphen. Note lines keep their prose exactly. Timepoint lines read
  * `@ <time>  <label>` (time words single spaced, label exactly as written), or `@ <time>, <label>`
  * when a comma was written after the time. Every blank written between words that are read,
  * also inside a unit or a word of two words and a shorthand gas, becomes one plain space (a
@@ -23,13 +24,14 @@
  * Left exactly as they are: blank lines, comment-only lines, lines with syntax issues (unknown
  * section, key without value, decimal comma, unreadable time or shorthand, stray text) and
  * any line whose canonical form would not read back to the same items (checked by re-parsing
- * it). Spellings of sections, keys, numbers, units and words are never changed, line endings
+ * it). Spellings of sections, keys, numbers, units and words are never changed (a range's dash
+ * is punctuation, not a spelling), line endings
  * are kept per line, and a byte-order mark at the start of the text is kept.
  */
 import { isKnownUnitSpelling } from '../fields/units';
 import { isBlank } from '../syntax/lexer';
 import { squeezeBlanks } from '../syntax/blanks';
-import { eachLineBetween, parseLine, parseNote } from '../syntax/parser';
+import { eachLineBetween, isDashedPair, parseLine, parseNote } from '../syntax/parser';
 import type { ItemNode, LineNode, SectionLine, TimepointLine } from '../syntax/tree';
 import type { TextEdit } from '../types';
 import { applyEdits } from './text-edits';
@@ -154,6 +156,19 @@ function unitText(item: ItemNode, unglue: boolean): string {
   return ` ${squeezeBlanks(unit.text)}`;
 }
 
+/**
+ * An item's value as the canonical layout writes it: as written with its blanks squeezed, but a
+ * range (`target 88 - 92`, `88 – 92`, `88–92`) as its two numbers joined by a hyphen, `88-92`.
+ */
+function valueText(item: ItemNode): string {
+  const value = item.value!;
+  if (value.kind === 'pair' && isDashedPair(value)) {
+    const [low, high] = value.parts;
+    if (low && high) return `${low.text}-${high.text}`;
+  }
+  return squeezeBlanks(value.text);
+}
+
 function itemsText(node: SectionLine, unglue: boolean): string | null {
   const parts: string[] = [];
   /** Where the lead (shorthand or device) ends, to keep the separator written after it. */
@@ -195,7 +210,7 @@ function itemsText(node: SectionLine, unglue: boolean): string | null {
       parts[parts.length - 1] += ` (${item.value.text}${unitText(item, unglue)})`;
     } else {
       if (!item.key || !item.value) return null;
-      parts.push(`${item.key.text} ${squeezeBlanks(item.value.text)}${unitText(item, unglue)}`);
+      parts.push(`${item.key.text} ${valueText(item)}${unitText(item, unglue)}`);
     }
     i++;
   }
@@ -215,7 +230,7 @@ function signature(node: LineNode): string {
     case 'section':
       return JSON.stringify([
         'section', node.section, node.sectionToken.text, node.prose?.text ?? null, comment, node.issues.length,
-        node.items.map((i) => [i.keyName, i.implied, i.key?.text ?? null, i.value?.kind ?? null, i.value ? squeezeBlanks(i.value.text) : null, i.unit ? squeezeBlanks(i.unit.text) : null]),
+        node.items.map((i) => [i.keyName, i.implied, i.key?.text ?? null, i.value?.kind ?? null, i.value ? valueText(i) : null, i.unit ? squeezeBlanks(i.unit.text) : null]),
       ]);
     case 'timepoint':
       return JSON.stringify(['timepoint', node.time ? [node.time.kind, node.time.day, node.time.minutes, singleSpaced(node.time.text)] : null, node.label?.text ?? null, comment, node.issues.length]);

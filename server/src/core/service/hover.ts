@@ -327,10 +327,11 @@ function targetStandingText(result: NoteResult, s: StatedValue): string | null {
   if (target === null) return null;
   const origin = target.input?.origin;
   const from = origin === undefined ? 'the spo2Target setting\'s'
-    : origin.kind === 'carried' ? `in force since ${timeText(origin.fromTime) ?? 'an earlier timepoint'}, line ${origin.line + 1}`
+    // As PN327 and PN328 say it; a target of the implicit first timepoint (before any `@`) has no time.
+    : origin.kind === 'carried' ? `in force since ${timeText(origin.fromTime) === null ? '' : `${timeText(origin.fromTime)}, `}line ${origin.line + 1}`
       : origin.kind === 'default' ? '' : `written on line ${origin.line + 1}`;
   const where = standing(s.value, target);
-  return `SpO2 target: **${where}** target ${targetText(target)}${from ? ` (${from})` : ''}.`;
+  return `SpO2 target: **${where}** ${targetText(target)}${from ? ` (${from})` : ''}.`;
 }
 
 function carryText(field: FieldDef, section: SectionId, stated: StatedValue | null, mode: string | null, support: NoninvasiveSupport | null): string {

@@ -1195,6 +1195,65 @@ function readDashGroup(chunk: Word, source: string): PairNode | null {
   return new PairNode(source, chunk.start, chunk.start + end, 2, comma || SCANNED.decimalComma, true);
 }
 
+/** A hyphen or an en dash, the joins of a range (`88-92`, `88–92`). */
+function isRangeDash(c: number): boolean {
+  return c === 0x2d /* - */ || c === 0x2013 /* – */;
+}
+
+/**
+ * A range written with blanks around its dash or on one side of it (`88 - 92`, `88 – 92 %`,
+ * `88 -92`, `88- 92`), from chunk `i`, for a field whose pairs are joined so (`join: 'dash'`), or
+ * null: read as the same range as `88-92`, which the formatter writes. How many chunks it took is
+ * left in GROUP.used, and a unit glued to the second number in GROUP.unit. The second number starts
+ * with a digit (`88 - -92` is none).
+ */
+function readSpacedDashGroup(chunks: readonly Word[], i: number, source: string): PairNode | null {
+  GROUP.used = 1;
+  GROUP.unit = null;
+  const first = chunks[i];
+  const after = chunks[i + 1];
+  if (!first || !after || after.afterComma) return null;
+  const text = first.text;
+  const lead = scanNumber(text);
+  if (lead === 0 || !isDigit(text.charCodeAt(0))) return null;
+  let comma = SCANNED.decimalComma;
+  let second: Word;
+  let from: number;
+  let used: number;
+  if (lead === text.length - 1 && isRangeDash(text.charCodeAt(lead))) {
+    // `88- 92`
+    second = after;
+    from = 0;
+    used = 2;
+  } else if (lead !== text.length) {
+    return null;
+  } else if (after.text.length === 1 && isRangeDash(after.text.charCodeAt(0))) {
+    // `88 - 92`, `88 – 92`
+    const next = chunks[i + 2];
+    if (!next || next.afterComma) return null;
+    second = next;
+    from = 0;
+    used = 3;
+  } else if (isRangeDash(after.text.charCodeAt(0))) {
+    // `88 -92`
+    second = after;
+    from = 1;
+    used = 2;
+  } else return null;
+  const secondText = second.text;
+  if (!isDigit(secondText.charCodeAt(from))) return null;
+  const length = scanNumber(secondText, from);
+  if (length === 0) return null;
+  comma ||= SCANNED.decimalComma;
+  const end = from + length;
+  if (end < secondText.length) {
+    if (!isUnitStart(secondText.charCodeAt(end))) return null;
+    GROUP.unit = token(secondText.slice(end), second.start + end, second.end);
+  }
+  GROUP.used = used;
+  return new PairNode(source, first.start, second.start + end, 2, comma, true);
+}
+
 /**
  * Numbers joined by slashes (`120/80`, `120 / 80`). It keeps where it is and how many numbers it
  * has, and reads its numbers again from its line when they are asked for (`parts`, `numbers`): a
@@ -1262,7 +1321,12 @@ class PairNode extends Cut implements PairValue {
    */
   private numberAt(at: number, k: number): number {
     const source = this.source;
-    if (k > 0 && (this.flags & 2) !== 0) at++; // the one hyphen or en dash of a range (`88-92`)
+    if (k > 0 && (this.flags & 2) !== 0) {
+      // The one hyphen or en dash of a range (`88-92`), and any blanks around it (`88 - 92`).
+      while (isBlank(source.charCodeAt(at))) at++;
+      at++;
+      while (isBlank(source.charCodeAt(at))) at++;
+    }
     else if (k > 0) while (source.charCodeAt(at) === 0x2f /* / */ || isBlank(source.charCodeAt(at))) at++;
     NUMBER_LENGTH = scanNumber(source, at);
     return at;
@@ -2183,7 +2247,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
         // A range (`target 88-92`) is joined by a dash, never by a slash.
         const dashed = field?.join === 'dash';
         // A slash group there (`target 88/92`) is read as any pair is, and reported (PN102).
-        const group = !tryGroup ? null : (dashed ? readDashGroup(next, source) : null) ?? groupAt(chunks, i, source, field?.kind === 'pair', field?.id === 'bp' ? limit : -1);
+        const group = !tryGroup ? null : (dashed ? readDashGroup(next, source) ?? readSpacedDashGroup(chunks, i, source) : null) ?? groupAt(chunks, i, source, field?.kind === 'pair', field?.id === 'bp' ? limit : -1);
         const glued = GROUP.unit;
         const used = GROUP.used;
         const length = group ? 0 : tryGroup ? numberChunk(next) : lead;
