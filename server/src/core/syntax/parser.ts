@@ -1326,8 +1326,7 @@ class PairNode extends Cut implements PairValue {
       while (isBlank(source.charCodeAt(at))) at++;
       at++;
       while (isBlank(source.charCodeAt(at))) at++;
-    }
-    else if (k > 0) while (source.charCodeAt(at) === 0x2f /* / */ || isBlank(source.charCodeAt(at))) at++;
+    } else if (k > 0) while (source.charCodeAt(at) === 0x2f /* / */ || isBlank(source.charCodeAt(at))) at++;
     NUMBER_LENGTH = scanNumber(source, at);
     return at;
   }
