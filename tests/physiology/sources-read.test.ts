@@ -34,6 +34,9 @@
  * delta ratio; NIST's conventional cmH2O and foot; the usual 2–5 mmHg of the arterial to end-tidal
  * CO2 gradient; the compliance of a healthy chest wall and respiratory system; a later form of Buck's
  * vapour pressure equation; the Safe Harbor list of identifiers; the Venturi settings and their flows.
+ *
+ * Read in December 2026 (session 31), each beside its test at the end of this file: the SpO2 targets
+ * of BTS 2017 and TSANZ 2015.
  */
 import { describe, expect, it } from 'vitest';
 import { VT_PER_KG_HARD_MAX, VT_PER_KG_USUAL } from '../../server/src/core/analysis/per-kg-volume';
@@ -60,7 +63,10 @@ import { derivedDef } from '../../server/src/core/derive/registry';
 import { ADULT_FROM_YEARS } from '../../server/src/core/physiology/adults';
 import { fieldById } from '../../server/src/core/fields/registry';
 import { SOURCES as TRANSPORT } from '../../server/src/core/physiology/oxygen-transport';
-import { settingsSchema } from '../../server/src/core/settings';
+import { settingsSchema, type Settings } from '../../server/src/core/settings';
+import { checkNote } from '../../server/src/core';
+import { targetInForce } from '../../server/src/core/analysis/spo2-target';
+import { ORDINARY_TARGET_FROM_PCT, spo2AboveTarget, spo2BelowTarget, targetBesideHypercapnia } from '../../server/src/core/checks/spo2-target';
 
 /** Per mmHg, as read; Pneumark's spans are per 10 mmHg. */
 const NARINS_EMMETT_AS_ADAPTED = { acuteAcidosis: 0.1, chronicAcidosis: 0.35, acuteAlkalosis: 0.2, chronicAlkalosis: 0.5 } as const;
@@ -520,5 +526,64 @@ describe('the standard atmosphere Pneumark uses, against its constants as read',
 
   it('the citation says where the constants were read', () => {
     expect(ATMOSPHERE['us-standard-atmosphere-1976']).toContain('crnslab.org/util/atmo.php');
+  });
+});
+
+// ---------------------------------------------------------------------------------------------
+// Read in December 2026 (session 31).
+
+// The SpO2 targets as read. BTS 2017 (O'Driscoll BR et al., Thorax 2017;72(Suppl 1):ii1–ii90), in its
+// table 2 at thorax.bmj.com: an initial target range of 94–98 % for serious illness, and 88–92 % pending
+// blood gases where COPD or another risk of hypercapnic respiratory failure coexists; the same two ranges
+// on the British Thoracic Society's own page of the guideline (brit-thoracic.org.uk, its update of
+// December 2019). TSANZ 2015 (Beasley R et al., Respirology 2015;20:1182–1191): 92–96 % as the range it
+// recommends, read in the abstract of its authors' letter comparing it with 94–98 % (Respirology 2016,
+// doi 10.1111/resp.12879, at ahro.austin.org.au), and 88–92 % in COPD and other causes of chronic
+// respiratory failure, its recommendation 8 (the guideline as reproduced at fliphtml5.com, page 14).
+const SPO2_TARGETS_AS_READ = {
+  bts: [[94, 98], [88, 92]],
+  tsanz: [[92, 96], [88, 92]],
+} as const;
+
+describe('the SpO2 targets Pneumark offers, against BTS 2017 and TSANZ 2015 as read', () => {
+  const ranges = [...SPO2_TARGETS_AS_READ.bts, ...SPO2_TARGETS_AS_READ.tsanz];
+
+  it.each(ranges)('%d–%d %%: a value of the spo2Target setting, which gives a note that writes none that target', (low, high) => {
+    const spo2Target = `${low}-${high}` as Settings['spo2Target'];
+    expect(settingsSchema.safeParse({ spo2Target }).success).toBe(true);
+    const result = checkNote('@ day 1 09:00\nvitals spo2 95', { spo2Target });
+    const target = targetInForce(result.analysis.timeline.timepoints[0]!.values, { spo2Target });
+    expect(target && [target.lowPct, target.highPct]).toEqual([low, high]);
+  });
+
+  it('the setting offers no range that was not read', () => {
+    const offered = ['88-92', '92-96', '94-98'];
+    expect(new Set(ranges.map(([low, high]) => `${low}-${high}`))).toEqual(new Set(offered));
+    for (const other of ['90-94', '92-98', '94-99']) expect(settingsSchema.safeParse({ spo2Target: other }).success, other).toBe(false);
+  });
+
+  it('PN329 speaks under the ordinary targets read (lower end 92 % or more) and not under 88–92 %', () => {
+    expect(SPO2_TARGETS_AS_READ.bts[0][0]).toBeGreaterThanOrEqual(ORDINARY_TARGET_FROM_PCT);
+    expect(SPO2_TARGETS_AS_READ.tsanz[0][0]).toBeGreaterThanOrEqual(ORDINARY_TARGET_FROM_PCT);
+    expect(SPO2_TARGETS_AS_READ.bts[1][0]).toBeLessThan(ORDINARY_TARGET_FROM_PCT);
+  });
+
+  it('every range read lies within the bounds of the spo2_target field', () => {
+    const field = fieldById('spo2_target')!;
+    for (const [low, high] of ranges) {
+      expect(low).toBeGreaterThanOrEqual(field.hard!.min!);
+      expect(high).toBeLessThanOrEqual(field.hard!.max!);
+    }
+  });
+
+  it('the citations say where the targets were read', () => {
+    for (const check of [spo2AboveTarget, spo2BelowTarget, targetBesideHypercapnia]) {
+      expect(check.source, check.code).toContain('table 2 at thorax.bmj.com');
+      expect(check.source, check.code).toContain('brit-thoracic.org.uk');
+      expect(check.source, check.code).not.toContain('from memory');
+    }
+    const bounds = fieldById('spo2_target')!.boundsSource ?? '';
+    expect(bounds).toContain('ahro.austin.org.au');
+    expect(bounds).not.toContain('from memory');
   });
 });
