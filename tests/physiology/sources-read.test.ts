@@ -36,7 +36,8 @@
  * vapour pressure equation; the Safe Harbor list of identifiers; the Venturi settings and their flows.
  *
  * Read in December 2026 (session 31), each beside its test at the end of this file: the SpO2 targets
- * of BTS 2017 and TSANZ 2015.
+ * of BTS 2017 and TSANZ 2015; the general form of the base excess and a standardisation of it (Lang &
+ * Zander 2002), and the CO2 solubility of the Henderson–Hasselbalch form as two sources give it.
  */
 import { describe, expect, it } from 'vitest';
 import { VT_PER_KG_HARD_MAX, VT_PER_KG_USUAL } from '../../server/src/core/analysis/per-kg-volume';
@@ -45,6 +46,10 @@ import { venturiSetting } from '../../server/src/core/checks/collected';
 import { tidalVolumePerKg } from '../../server/src/core/checks/vt-per-kg';
 import { acidBaseReading } from '../../server/src/core/checks/interpretations';
 import {
+  actualBaseExcess,
+  BASE_EXCESS_TOLERANCE_MMOL_L,
+  hco3FromPhPco2,
+  standardBaseExcess,
   expectedPaco2MetabolicAcidosis,
   expectedPaco2MetabolicAlkalosis,
   RESPIRATORY_HCO3_COEFFICIENTS_PER_10_MMHG,
@@ -585,5 +590,65 @@ describe('the SpO2 targets Pneumark offers, against BTS 2017 and TSANZ 2015 as r
     const bounds = fieldById('spo2_target')!.boundsSource ?? '';
     expect(bounds).toContain('ahro.austin.org.au');
     expect(bounds).not.toContain('from memory');
+  });
+});
+
+// The base excess as read in the abstract of Lang W, Zander R. The accuracy of calculated base excess in
+// blood. Clin Chem Lab Med 2002;40(4):404–410 (metajournal.com): most forms rest on the Van Slyke equation,
+// BE = Z × ((cHCO3 − cHCO3 at pH 7.4) + β × (pH − 7.4)), Z depending on the Hb only; the authors recommend
+// BE = (1 − 0.0143 × cHb) × ((0.0304 × PCO2 × 10^(pH − 6.1) − 24.26) + (9.5 + 1.63 × cHb) × (pH − 7.4))
+// − 0.2 × cHb × (1 − sO2), cHb in g/dL; the seven forms compared have mean errors of ±0.86 to ±1.50 mmol/L
+// against 148 reference samples. The constants of CLSI C46-A2 that Pneumark uses were not read.
+function zander2002AsRead(ph: number, hco3: number, hbGdl: number, so2: number): number {
+  return (1 - 0.0143 * hbGdl) * (hco3 - 24.26 + (9.5 + 1.63 * hbGdl) * (ph - 7.4)) - 0.2 * hbGdl * (1 - so2);
+}
+
+describe('base excess: the Van Slyke form as read, and the actual base excess against the form Lang & Zander recommend', () => {
+  it('both forms Pneumark uses are Z × ((HCO3 − its value at pH 7.40) + β × (pH − 7.40)): 0 at pH 7.40 and that HCO3, and Z per mmol/L of HCO3', () => {
+    expect(standardBaseExcess(7.4, 24.4)).toBeCloseTo(0, 12);
+    expect(standardBaseExcess(7.3, 20)! - standardBaseExcess(7.3, 19)!).toBeCloseTo(0.93, 12);
+    for (const hb of [7, 12, 17]) {
+      expect(actualBaseExcess(7.4, 24.8, hb)).toBeCloseTo(0, 12);
+      expect(actualBaseExcess(7.3, 20, hb)! - actualBaseExcess(7.3, 19, hb)!).toBeCloseTo(1 - 0.014 * hb, 12);
+    }
+  });
+
+  it('with the same HCO3, the actual base excess is within 2 mmol/L of theirs in oxygenated blood (pH 7.0–7.7, HCO3 5–50, Hb 7–17 g/dL), inside the ±3 mmol/L a stated base excess is allowed', () => {
+    let largest = 0;
+    for (let ph = 7.0; ph <= 7.7 + 1e-9; ph += 0.05) {
+      for (let hco3 = 5; hco3 <= 50; hco3 += 2.5) {
+        for (let hb = 7; hb <= 17; hb += 1) {
+          largest = Math.max(largest, Math.abs(actualBaseExcess(ph, hco3, hb)! - zander2002AsRead(ph, hco3, hb, 1)));
+        }
+      }
+    }
+    expect(largest).toBeLessThan(2);
+    expect(largest).toBeLessThan(BASE_EXCESS_TOLERANCE_MMOL_L);
+  });
+
+  it('pH 7.40, HCO3 24.8, Hb 15: 0 here, 0.78 × 0.54 = 0.42 mmol/L by theirs (their HCO3 at pH 7.4 is 24.26)', () => {
+    expect(actualBaseExcess(7.4, 24.8, 15)).toBeCloseTo(0, 12);
+    expect(zander2002AsRead(7.4, 24.8, 15, 1)).toBeCloseTo((1 - 0.0143 * 15) * 0.54, 12);
+  });
+
+  it('the citation says what was read and that the constants are still recalled', () => {
+    expect(ACID_BASE['van-slyke-sbe']).toContain('Clin Chem Lab Med 2002;40(4):404–410');
+    expect(ACID_BASE['van-slyke-sbe']).toContain('constants from memory');
+  });
+});
+
+// The CO2 solubility of the Henderson–Hasselbalch form, as read: HCO3 = 0.0307 × pCO2 × 10^(pH − 6.105)
+// after NCCLS (1994), in table 1 of a 2018 study in Vet Med Sci 4(3):206–217 (PMC6090410); and
+// 0.0304 × PCO2 × 10^(pH − 6.1) in the form of Lang & Zander 2002 as read above.
+describe('Henderson–Hasselbalch: the HCO3 from pH and PaCO2 against two forms as read', () => {
+  it.each([[7.1, 60], [7.4, 40], [7.55, 25], [7.25, 80]])('pH %f, PaCO2 %f mmHg: within 1.2 %% of both', (ph, paco2) => {
+    const ours = hco3FromPhPco2(ph, paco2)!;
+    for (const read of [0.0307 * paco2 * 10 ** (ph - 6.105), 0.0304 * paco2 * 10 ** (ph - 6.1)]) {
+      expect(Math.abs(ours / read - 1)).toBeLessThan(0.012);
+    }
+  });
+
+  it('the citation says where the solubility was read', () => {
+    expect(ACID_BASE['henderson-hasselbalch']).toContain('PMC6090410');
   });
 });
