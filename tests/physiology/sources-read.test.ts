@@ -37,7 +37,8 @@
  *
  * Read in December 2026 (session 31), each beside its test at the end of this file: the SpO2 targets
  * of BTS 2017 and TSANZ 2015; the general form of the base excess and a standardisation of it (Lang &
- * Zander 2002), and the CO2 solubility of the Henderson–Hasselbalch form as two sources give it.
+ * Zander 2002), and the CO2 solubility of the Henderson–Hasselbalch form as two sources give it; how
+ * PRVC adapts its pressure; a starting pressure control.
  */
 import { describe, expect, it } from 'vitest';
 import { VT_PER_KG_HARD_MAX, VT_PER_KG_USUAL } from '../../server/src/core/analysis/per-kg-volume';
@@ -71,6 +72,7 @@ import { SOURCES as TRANSPORT } from '../../server/src/core/physiology/oxygen-tr
 import { settingsSchema, type Settings } from '../../server/src/core/settings';
 import { checkNote } from '../../server/src/core';
 import { targetInForce } from '../../server/src/core/analysis/spo2-target';
+import { complianceImplausible } from '../../server/src/core/checks/compliance-reach';
 import { ORDINARY_TARGET_FROM_PCT, spo2AboveTarget, spo2BelowTarget, targetBesideHypercapnia } from '../../server/src/core/checks/spo2-target';
 
 /** Per mmHg, as read; Pneumark's spans are per 10 mmHg. */
@@ -650,5 +652,44 @@ describe('Henderson–Hasselbalch: the HCO3 from pH and PaCO2 against two forms 
 
   it('the citation says where the solubility was read', () => {
     expect(ACID_BASE['henderson-hasselbalch']).toContain('PMC6090410');
+  });
+});
+
+// How PRVC adapts, as read on Cooper University Health Care's emergency medicine teaching page on PRVC
+// (emdaily1.cooperhealth.org): the ventilator adjusts the applied pressure up or down according to whether the
+// exhaled tidal volume is below or above the target, and a greater inspiratory effort increases the inspiratory
+// flow at a set pressure; and on the PRVC page of the Department of Anaesthesia and Intensive Care, Chinese
+// University of Hong Kong (aic.cuhk.edu.hk/web8/prvc.htm): a volume too high lowers the pressure of the next
+// breath, one too low raises it. So a patient whose effort draws in the target is given less pressure.
+describe('PRVC: the other reading PN407 names, against how the mode adapts as read', () => {
+  it('a peak equal to the PEEP under PRVC names a patient breathing the target unsupported, and under VC does not', () => {
+    const prvc = checkNote('@ 08:00\nvent mode PRVC, vt 450 mL, peep 8, peak 8').findings.filter((f) => f.code === 'PN407');
+    const vc = checkNote('@ 08:00\nvent mode VC, vt 450 mL, peep 8, peak 8').findings.filter((f) => f.code === 'PN407');
+    expect(prvc).toHaveLength(1);
+    expect(prvc[0]!.message).toContain("PRVC lowers its pressure as the patient's effort grows");
+    expect(vc).toHaveLength(1);
+    expect(vc[0]!.message).not.toContain('effort');
+  });
+
+  it('the check says where the mode\'s adaptation was read', () => {
+    expect(complianceImplausible.source).toContain('emdaily1.cooperhealth.org');
+    expect(complianceImplausible.source).toContain('aic.cuhk.edu.hk/web8/prvc.htm');
+  });
+});
+
+// A starting pressure control as read in the open textbook Mechanical Ventilators (eCampusOntario), its
+// chapter on the pressure control setting (ecampusontario.pressbooks.pub): 14 cmH2O is a safe pressure
+// control to start at, keeping peak pressures well below 35 cmH2O even with a slightly higher PEEP.
+// The usual 10–25 cmH2O above PEEP that the field's bounds name is still from memory.
+const STARTING_PRESSURE_CONTROL_CMH2O = 14;
+const PEAK_KEPT_BELOW_CMH2O = 35;
+
+describe('the set inspiratory pressure (pinsp): a starting pressure control as read', () => {
+  it('14 cmH2O lies within the usual bounds (the value is above PEEP), and with a PEEP of 5 to 10 gives a peak below 35', () => {
+    const field = fieldById('insp_pressure')!;
+    expect(STARTING_PRESSURE_CONTROL_CMH2O).toBeGreaterThanOrEqual(field.hard!.min!);
+    expect(STARTING_PRESSURE_CONTROL_CMH2O).toBeLessThanOrEqual(field.soft!.max!);
+    for (const peep of [5, 10]) expect(STARTING_PRESSURE_CONTROL_CMH2O + peep).toBeLessThan(PEAK_KEPT_BELOW_CMH2O);
+    expect(field.boundsSource).toContain('ecampusontario.pressbooks.pub');
   });
 });
