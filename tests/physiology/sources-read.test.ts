@@ -38,13 +38,15 @@
  * Read in December 2026 (session 31), each beside its test at the end of this file: the SpO2 targets
  * of BTS 2017 and TSANZ 2015; the general form of the base excess and a standardisation of it (Lang &
  * Zander 2002), and the CO2 solubility of the Henderson–Hasselbalch form as two sources give it; how
- * PRVC adapts its pressure; a starting pressure control.
+ * PRVC adapts its pressure; a starting pressure control; the end-expiratory pressure driving pressure
+ * is measured from.
  */
 import { describe, expect, it } from 'vitest';
 import { VT_PER_KG_HARD_MAX, VT_PER_KG_USUAL } from '../../server/src/core/analysis/per-kg-volume';
 import { venturiFio2High } from '../../server/src/core/checks/venturi-fio2';
 import { venturiSetting } from '../../server/src/core/checks/collected';
 import { tidalVolumePerKg } from '../../server/src/core/checks/vt-per-kg';
+import { derived } from '../derive/helpers';
 import { acidBaseReading } from '../../server/src/core/checks/interpretations';
 import {
   actualBaseExcess,
@@ -691,5 +693,19 @@ describe('the set inspiratory pressure (pinsp): a starting pressure control as r
     expect(STARTING_PRESSURE_CONTROL_CMH2O).toBeLessThanOrEqual(field.soft!.max!);
     for (const peep of [5, 10]) expect(STARTING_PRESSURE_CONTROL_CMH2O + peep).toBeLessThan(PEAK_KEPT_BELOW_CMH2O);
     expect(field.boundsSource).toContain('ecampusontario.pressbooks.pub');
+  });
+});
+
+// Driving pressure as read: "the difference of the plateau pressure and end-expiratory pressure of the
+// respiratory system", in the abstract of a 2018 review (pmc.ncbi.nlm.nih.gov/articles/PMC6212354); and
+// ΔP = Pplat − PEEP or VT / CRS in table 1 of a 2020 review (PMC7449829). Which PEEP Amato 2015 meant is
+// not read; that an end-expiratory hold measures the end-expiratory pressure of the respiratory system
+// (the total PEEP) is common practice, no source.
+describe('driving pressure: from the end-expiratory pressure of the respiratory system, as read', () => {
+  it('plateau 27 less the total PEEP of a hold, 12: 15 cmH2O; with no hold, less the set PEEP 8: 19, which is VT / Crs', () => {
+    expect(derived('@ 08:00\nvent mode VC, vt 450, rate 16, peep 8, peep_total 12, plateau 27', 'driving_pressure').value).toBe(15);
+    expect(derived('@ 08:00\nvent mode VC, vt 450, rate 16, peep 8, plateau 27', 'driving_pressure').value).toBe(19);
+    const crs = derived('@ 08:00\nvent mode VC, vt 450, rate 16, peep 8, plateau 27', 'compliance_static').value;
+    expect(450 / crs).toBeCloseTo(19, 9);
   });
 });
