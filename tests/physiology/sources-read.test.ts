@@ -39,7 +39,7 @@
  * of BTS 2017 and TSANZ 2015; the general form of the base excess and a standardisation of it (Lang &
  * Zander 2002), and the CO2 solubility of the Henderson–Hasselbalch form as two sources give it; how
  * PRVC adapts its pressure; a starting pressure control; the end-expiratory pressure driving pressure
- * is measured from.
+ * is measured from; a worked alveolar PO2 on air at sea level, with its water vapour pressure.
  */
 import { describe, expect, it } from 'vitest';
 import { VT_PER_KG_HARD_MAX, VT_PER_KG_USUAL } from '../../server/src/core/analysis/per-kg-volume';
@@ -58,13 +58,13 @@ import {
   RESPIRATORY_HCO3_COEFFICIENTS_PER_10_MMHG,
   SOURCES as ACID_BASE,
 } from '../../server/src/core/physiology/acid-base';
-import { OSI_MAX_SPO2_PERCENT, oxygenationIndex, oxygenSaturationIndex, SOURCES as GAS_EXCHANGE } from '../../server/src/core/physiology/gas-exchange';
+import { alveolarPo2Full, alveolarPo2Simplified, OSI_MAX_SPO2_PERCENT, oxygenationIndex, oxygenSaturationIndex, SOURCES as GAS_EXCHANGE } from '../../server/src/core/physiology/gas-exchange';
 import { SOURCES as MECHANICS } from '../../server/src/core/physiology/mechanics';
 import { VENTURI_PERCENT } from '../../server/src/core/syntax/parser';
 import { METRES_PER_FOOT, MMHG_PER_CMH2O, MMHG_PER_KPA, PA_PER_CMH2O, PA_PER_MMHG, SOURCES as UNIT_SOURCES } from '../../server/src/core/physiology/units';
 import { deltaRatioBand } from '../../server/src/core/physiology/acid-base';
 import { COMPLIANCE_CEILING_ML_PER_CMH2O } from '../../server/src/core/physiology/mechanics';
-import { barometricFromAltitudeStandard, SOURCES as ATMOSPHERE, waterVapourPressureMmhg } from '../../server/src/core/physiology/atmosphere';
+import { barometricFromAltitudeStandard, inspiredPo2Humidified, SOURCES as ATMOSPHERE, WATER_VAPOUR_37C_MMHG, waterVapourPressureMmhg } from '../../server/src/core/physiology/atmosphere';
 import { PLACEHOLDERS, type PrivacyKind } from '../../server/src/core/privacy/types';
 import { PRIVACY_CHECKS, possibleName } from '../../server/src/core/checks/privacy';
 import { derivedDef } from '../../server/src/core/derive/registry';
@@ -707,5 +707,32 @@ describe('driving pressure: from the end-expiratory pressure of the respiratory 
     expect(derived('@ 08:00\nvent mode VC, vt 450, rate 16, peep 8, plateau 27', 'driving_pressure').value).toBe(19);
     const crs = derived('@ 08:00\nvent mode VC, vt 450, rate 16, peep 8, plateau 27', 'compliance_static').value;
     expect(450 / crs).toBeCloseTo(19, 9);
+  });
+});
+
+// The sample values of the English Wikipedia article "Alveolar gas equation", as read in its copy at
+// primidi.com/alveolar_gas_equation/equation, for air at sea level at 37 °C: pAO2 107 mmHg (14.2 kPa),
+// FiO2 0.21, atmospheric pressure 760 mmHg, water vapour pressure at body temperature 47 mmHg (6.25 kPa),
+// paCO2 36 mmHg, respiratory quotient 0.8.
+const ALVEOLAR_SAMPLE_AS_READ = { pao2Alveolar: 107, fio2: 0.21, pb: 760, ph2o: 47, paco2: 36, rq: 0.8 } as const;
+
+describe('the alveolar gas equation against a worked value as read', () => {
+  const s = ALVEOLAR_SAMPLE_AS_READ;
+
+  it('the water vapour pressure Pneumark takes at 37 °C is the 47 mmHg read, and Buck\'s equation gives it to the nearest mmHg (47.1)', () => {
+    expect(WATER_VAPOUR_37C_MMHG).toBe(s.ph2o);
+    expect(Math.round(waterVapourPressureMmhg(37)!)).toBe(s.ph2o);
+  });
+
+  it('the full form gives the 107 mmHg read to the nearest mmHg (0.21 × 713 − 36 × (0.21 + 0.79 ÷ 0.8) = 106.6); the simplified form, 104.7, does not', () => {
+    const pio2 = inspiredPo2Humidified(s.fio2, s.pb)!;
+    expect(pio2).toBeCloseTo(149.73, 9);
+    expect(Math.round(alveolarPo2Full(s.fio2, pio2, s.paco2, s.rq)!)).toBe(s.pao2Alveolar);
+    expect(Math.round(alveolarPo2Simplified(pio2, s.paco2, s.rq)!)).not.toBe(s.pao2Alveolar);
+  });
+
+  it('the citations say where the values were read', () => {
+    expect(ATMOSPHERE['inspired-po2']).toContain('primidi.com');
+    expect(GAS_EXCHANGE['alveolar-gas-equation']).toContain('primidi.com');
   });
 });

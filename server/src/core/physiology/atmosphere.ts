@@ -19,7 +19,7 @@ export const SOURCES = Object.freeze({
   'buck-1981':
     'Buck AL. New equations for computing vapor pressure and enhancement factor. J Appl Meteorol 1981;20(12):1527–1532 (the paper not read here): its equation 3 over liquid water, 6.1121 exp(17.502 T/(240.97 + T)) hPa, the form used here, read in its reproduction in the R package HeatStress (rdrr.io/github/anacv/HeatStress, esat.R, which names it Buck 1981 equation 3, written with T + 240.97 as Tk − 32.18). Its later form over liquid water, 6.1121 exp((18.678 − T/234.5) × T/(257.14 + T)) hPa, read in the Wikipedia article "Arden Buck equation" (en.wikipedia.org/wiki/Arden_Buck_equation), gives the same pressure within 0.05 % from 0 to 42 °C.',
   'inspired-po2':
-    'Inspired PO2 = FiO2 × (PB − PH2O), water vapour 47 mmHg at 37 °C: standard respiratory physiology, e.g. West JB. Respiratory Physiology: The Essentials (from memory); common practice.',
+    'Inspired PO2 = FiO2 × (PB − PH2O), water vapour 47 mmHg at 37 °C: standard respiratory physiology, e.g. West JB. Respiratory Physiology: The Essentials (from memory); common practice. The water vapour pressure at body temperature, 47 mmHg (6.25 kPa), read among the sample values for air at sea level at 37 °C of the English Wikipedia article Alveolar gas equation (its copy at primidi.com), with a barometric pressure of 760 mmHg.',
 } as const);
 
 /** Altitudes (m) for which West's model atmosphere is evaluated; outside → `null`. */
