@@ -39,7 +39,8 @@
  * of BTS 2017 and TSANZ 2015; the general form of the base excess and a standardisation of it (Lang &
  * Zander 2002), and the CO2 solubility of the Henderson–Hasselbalch form as two sources give it; how
  * PRVC adapts its pressure; a starting pressure control; the end-expiratory pressure driving pressure
- * is measured from; a worked alveolar PO2 on air at sea level, with its water vapour pressure.
+ * is measured from; a worked alveolar PO2 on air at sea level, with its water vapour pressure; West's
+ * model atmosphere against the pressures measured on Everest.
  */
 import { describe, expect, it } from 'vitest';
 import { VT_PER_KG_HARD_MAX, VT_PER_KG_USUAL } from '../../server/src/core/analysis/per-kg-volume';
@@ -64,7 +65,7 @@ import { VENTURI_PERCENT } from '../../server/src/core/syntax/parser';
 import { METRES_PER_FOOT, MMHG_PER_CMH2O, MMHG_PER_KPA, PA_PER_CMH2O, PA_PER_MMHG, SOURCES as UNIT_SOURCES } from '../../server/src/core/physiology/units';
 import { deltaRatioBand } from '../../server/src/core/physiology/acid-base';
 import { COMPLIANCE_CEILING_ML_PER_CMH2O } from '../../server/src/core/physiology/mechanics';
-import { barometricFromAltitudeStandard, inspiredPo2Humidified, SOURCES as ATMOSPHERE, WATER_VAPOUR_37C_MMHG, waterVapourPressureMmhg } from '../../server/src/core/physiology/atmosphere';
+import { barometricFromAltitudeStandard, barometricFromAltitudeWest, inspiredPo2Humidified, SOURCES as ATMOSPHERE, WATER_VAPOUR_37C_MMHG, waterVapourPressureMmhg } from '../../server/src/core/physiology/atmosphere';
 import { PLACEHOLDERS, type PrivacyKind } from '../../server/src/core/privacy/types';
 import { PRIVACY_CHECKS, possibleName } from '../../server/src/core/checks/privacy';
 import { derivedDef } from '../../server/src/core/derive/registry';
@@ -734,5 +735,31 @@ describe('the alveolar gas equation against a worked value as read', () => {
   it('the citations say where the values were read', () => {
     expect(ATMOSPHERE['inspired-po2']).toContain('primidi.com');
     expect(GAS_EXCHANGE['alveolar-gas-equation']).toContain('primidi.com');
+  });
+});
+
+// The mean barometric pressures measured on Mount Everest, as read in the abstract of West JB et al.
+// Barometric pressures at extreme altitudes on Mt. Everest: physiological significance. J Appl Physiol
+// 1983;54(5):1188–1194 (in a copy of the article): 400.4 Torr at 5,400 m, 351.0 at 6,300 m, 283.6 at
+// 8,050 m and 253.0 on the summit, 8,848 m; all considerably higher than the ICAO Standard Atmosphere
+// predicts. West's model atmosphere of 1996, Pneumark's default, is not read (from memory): this holds
+// its pressures to the ones measured.
+const EVEREST_MEASURED_TORR = [[5400, 400.4], [6300, 351.0], [8050, 283.6], [8848, 253.0]] as const;
+
+describe('West\'s model atmosphere against the pressures measured on Everest, as read', () => {
+  it.each(EVEREST_MEASURED_TORR)('%d m: within 1.3 %% (4.5 mmHg) of the %f Torr measured', (altitudeM, measured) => {
+    const model = barometricFromAltitudeWest(altitudeM)!;
+    expect(Math.abs(model - measured)).toBeLessThan(4.5);
+    expect(Math.abs(model / measured - 1)).toBeLessThan(0.013);
+  });
+
+  it('the standard atmosphere reads lower than each pressure measured, and more than 15 mmHg lower on the summit', () => {
+    for (const [altitudeM, measured] of EVEREST_MEASURED_TORR) expect(barometricFromAltitudeStandard(altitudeM)!).toBeLessThan(measured);
+    expect(253.0 - barometricFromAltitudeStandard(8848)!).toBeGreaterThan(15);
+  });
+
+  it('the citations say what was read and what is still recalled', () => {
+    expect(ATMOSPHERE['west-1983']).toContain('351.0 at 6,300 m, 283.6 at 8,050 m');
+    expect(ATMOSPHERE['west-1996']).toContain('the paper and its equation from memory');
   });
 });
