@@ -40,7 +40,7 @@
  * Zander 2002), and the CO2 solubility of the Henderson–Hasselbalch form as two sources give it; how
  * PRVC adapts its pressure; a starting pressure control; the end-expiratory pressure driving pressure
  * is measured from; a worked alveolar PO2 on air at sea level, with its water vapour pressure; West's
- * model atmosphere against the pressures measured on Everest.
+ * model atmosphere against the pressures measured on Everest; the arterial O2 content and delivery.
  */
 import { describe, expect, it } from 'vitest';
 import { VT_PER_KG_HARD_MAX, VT_PER_KG_USUAL } from '../../server/src/core/analysis/per-kg-volume';
@@ -71,7 +71,7 @@ import { PRIVACY_CHECKS, possibleName } from '../../server/src/core/checks/priva
 import { derivedDef } from '../../server/src/core/derive/registry';
 import { ADULT_FROM_YEARS } from '../../server/src/core/physiology/adults';
 import { fieldById } from '../../server/src/core/fields/registry';
-import { SOURCES as TRANSPORT } from '../../server/src/core/physiology/oxygen-transport';
+import { arterialO2Content, DISSOLVED_O2_ML_PER_DL_PER_MMHG, oxygenDelivery, SOURCES as TRANSPORT } from '../../server/src/core/physiology/oxygen-transport';
 import { settingsSchema, type Settings } from '../../server/src/core/settings';
 import { checkNote } from '../../server/src/core';
 import { targetInForce } from '../../server/src/core/analysis/spo2-target';
@@ -761,5 +761,32 @@ describe('West\'s model atmosphere against the pressures measured on Everest, as
   it('the citations say what was read and what is still recalled', () => {
     expect(ATMOSPHERE['west-1983']).toContain('351.0 at 6,300 m, 283.6 at 8,050 m');
     expect(ATMOSPHERE['west-1996']).toContain('the paper and its equation from memory');
+  });
+});
+
+// The arterial O2 content and delivery, as read: CaO2 = (1.34 × Hgb × SaO2) + (0.003 × PaO2) and DO2 = CO × CaO2
+// on OpenAnesthesia's page on O2 delivery (openanesthesia.org); and a worked value in the e-Learning for
+// Healthcare anaesthesia session on oxygen delivery (e-safe-anaesthesia.org): Hb 150 g/L × 1.34 × 0.98
+// saturation + 0.23 mL/L per kPa × 13 kPa = 197 + 3 = 200 mL/L, times a cardiac output of 5 L/min, an O2 flux
+// of 1,000 mL/min.
+const WORKED_CONTENT_AS_READ = { hbGdl: 15, so2: 0.98, po2Kpa: 13, dissolvedMlPerLPerKpa: 0.23, contentMlPerL: 200, coLPerMin: 5, fluxMlPerMin: 1000 } as const;
+
+describe('the arterial O2 content and delivery, against a worked value as read', () => {
+  const w = WORKED_CONTENT_AS_READ;
+
+  it('the dissolved O2 of 0.003 mL/dL per mmHg is the 0.23 mL/L per kPa read, to 3 % (0.00307 per mmHg)', () => {
+    const perMmhgAsRead = w.dissolvedMlPerLPerKpa / 10 / MMHG_PER_KPA;
+    expect(Math.abs(DISSOLVED_O2_ML_PER_DL_PER_MMHG / perMmhgAsRead - 1)).toBeLessThan(0.03);
+  });
+
+  it('Hb 15 g/dL, saturation 0.98, PO2 13 kPa: 20.0 mL/dL (the 200 mL/L read), and at 5 L/min 1,000 mL/min', () => {
+    const cao2 = arterialO2Content(w.hbGdl, w.so2, w.po2Kpa * MMHG_PER_KPA)!;
+    expect(Math.round(cao2 * 10)).toBe(w.contentMlPerL);
+    expect(Math.round(oxygenDelivery(w.coLPerMin, cao2)! / 10) * 10).toBe(w.fluxMlPerMin);
+  });
+
+  it('the citation says where the form and the worked value were read', () => {
+    expect(TRANSPORT['oxygen-content']).toContain('openanesthesia.org');
+    expect(TRANSPORT['oxygen-content']).toContain('e-safe-anaesthesia.org');
   });
 });
