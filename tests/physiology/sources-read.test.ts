@@ -40,7 +40,8 @@
  * Zander 2002), and the CO2 solubility of the Henderson–Hasselbalch form as two sources give it; how
  * PRVC adapts its pressure; a starting pressure control; the end-expiratory pressure driving pressure
  * is measured from; a worked alveolar PO2 on air at sea level, with its water vapour pressure; West's
- * model atmosphere against the pressures measured on Everest; the arterial O2 content and delivery.
+ * model atmosphere against the pressures measured on Everest; the arterial O2 content and delivery; the
+ * normal a/A ratio.
  */
 import { describe, expect, it } from 'vitest';
 import { VT_PER_KG_HARD_MAX, VT_PER_KG_USUAL } from '../../server/src/core/analysis/per-kg-volume';
@@ -59,7 +60,7 @@ import {
   RESPIRATORY_HCO3_COEFFICIENTS_PER_10_MMHG,
   SOURCES as ACID_BASE,
 } from '../../server/src/core/physiology/acid-base';
-import { alveolarPo2Full, alveolarPo2Simplified, OSI_MAX_SPO2_PERCENT, oxygenationIndex, oxygenSaturationIndex, SOURCES as GAS_EXCHANGE } from '../../server/src/core/physiology/gas-exchange';
+import { alveolarPo2Full, alveolarPo2Simplified, arterialAlveolarRatio, OSI_MAX_SPO2_PERCENT, oxygenationIndex, oxygenSaturationIndex, SOURCES as GAS_EXCHANGE } from '../../server/src/core/physiology/gas-exchange';
 import { SOURCES as MECHANICS } from '../../server/src/core/physiology/mechanics';
 import { VENTURI_PERCENT } from '../../server/src/core/syntax/parser';
 import { METRES_PER_FOOT, MMHG_PER_CMH2O, MMHG_PER_KPA, PA_PER_CMH2O, PA_PER_MMHG, SOURCES as UNIT_SOURCES } from '../../server/src/core/physiology/units';
@@ -788,5 +789,23 @@ describe('the arterial O2 content and delivery, against a worked value as read',
   it('the citation says where the form and the worked value were read', () => {
     expect(TRANSPORT['oxygen-content']).toContain('openanesthesia.org');
     expect(TRANSPORT['oxygen-content']).toContain('e-safe-anaesthesia.org');
+  });
+});
+
+// The a/A ratio as read in the chapter on oxygen tension-based indices of oxygenation at derangedphysiology.com:
+// the arterial over the alveolar PO2; over 75 % probably normal; unlike the other indices unaffected by FiO2
+// or barometric pressure. Gilbert & Keighley 1974 itself not read.
+const NORMAL_AA_RATIO_ABOVE = 0.75;
+
+describe('the a/A ratio against its normal as read', () => {
+  it('a healthy gas on air at sea level (PaO2 95, PaCO2 40, R 0.8) is above 0.75; the same lungs with a shunt on oxygen far below', () => {
+    const pio2Air = inspiredPo2Humidified(0.21, 760)!;
+    expect(arterialAlveolarRatio(95, alveolarPo2Full(0.21, pio2Air, 40)!)!).toBeGreaterThan(NORMAL_AA_RATIO_ABOVE);
+    const pio2Oxygen = inspiredPo2Humidified(1, 760)!;
+    expect(arterialAlveolarRatio(60, alveolarPo2Full(1, pio2Oxygen, 40)!)!).toBeLessThan(NORMAL_AA_RATIO_ABOVE / 5);
+  });
+
+  it('the citation says where the normal was read', () => {
+    expect(GAS_EXCHANGE['gilbert-keighley-1974']).toContain('derangedphysiology.com');
   });
 });

@@ -19,7 +19,7 @@ export const SOURCES = Object.freeze({
   'mellemgaard-1966':
     'Mellemgaard K. The alveolar-arterial oxygen difference: its size and components in normal man. Acta Physiol Scand 1966;67:10–20 (from memory).',
   'gilbert-keighley-1974':
-    'Gilbert R, Keighley JF. The arterial/alveolar oxygen tension ratio: an index of gas exchange applicable to varying inspired oxygen concentrations. Am Rev Respir Dis 1974;109(1):142–145 (from memory).',
+    'Gilbert R, Keighley JF. The arterial/alveolar oxygen tension ratio: an index of gas exchange applicable to varying inspired oxygen concentrations. Am Rev Respir Dis 1974;109(1):142–145 (the paper from memory). The ratio as arterial over alveolar PO2, unaffected by FiO2 or barometric pressure, and one above 75 % probably normal, read in the chapter on oxygen tension-based indices of oxygenation at derangedphysiology.com (December 2026).',
   'berlin-2012':
     'ARDS Definition Task Force (Ranieri VM et al.). Acute respiratory distress syndrome: the Berlin Definition. JAMA 2012;307(23):2526–2533, doi 10.1001/jama.2012.5669: the paper itself not read here; its oxygenation bands with PEEP or CPAP of at least 5 cmH2O (200 < P/F ≤ 300, 100 < P/F ≤ 200, P/F ≤ 100) and its altitude correction above 1,000 m, P/F × PB/760, read in its table as adapted in Crit Care 2012 (ccforum.biomedcentral.com/articles/10.1186/cc11867/tables/1), the citation in the Merck Manual\'s table adapted from it.',
   'rice-2007':
