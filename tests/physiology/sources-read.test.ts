@@ -41,7 +41,7 @@
  * PRVC adapts its pressure; a starting pressure control; the end-expiratory pressure driving pressure
  * is measured from; a worked alveolar PO2 on air at sea level, with its water vapour pressure; West's
  * model atmosphere against the pressures measured on Everest; the arterial O2 content and delivery; the
- * normal a/A ratio.
+ * normal a/A ratio; the oscillation frequencies of HFOV in adults.
  */
 import { describe, expect, it } from 'vitest';
 import { VT_PER_KG_HARD_MAX, VT_PER_KG_USUAL } from '../../server/src/core/analysis/per-kg-volume';
@@ -77,6 +77,7 @@ import { settingsSchema, type Settings } from '../../server/src/core/settings';
 import { checkNote } from '../../server/src/core';
 import { targetInForce } from '../../server/src/core/analysis/spo2-target';
 import { complianceImplausible } from '../../server/src/core/checks/compliance-reach';
+import { HFOV_USUAL_RATE_PER_MIN } from '../../server/src/core/checks/value-bounds';
 import { ORDINARY_TARGET_FROM_PCT, spo2AboveTarget, spo2BelowTarget, targetBesideHypercapnia } from '../../server/src/core/checks/spo2-target';
 
 /** Per mmHg, as read; Pneumark's spans are per 10 mmHg. */
@@ -807,5 +808,19 @@ describe('the a/A ratio against its normal as read', () => {
 
   it('the citation says where the normal was read', () => {
     expect(GAS_EXCHANGE['gilbert-keighley-1974']).toContain('derangedphysiology.com');
+  });
+});
+
+// The oscillation frequency of HFOV in adults as read in the abstract of a clinical review of HFOV in adults in
+// Critical Care (doi 10.1186/cc2182, ccforum.biomedcentral.com): frequencies generally between 3 and 10 Hz.
+// The higher frequencies used in infants (up to about 15 Hz) are not read (from memory).
+const ADULT_HFOV_HZ = { min: 3, max: 10 } as const;
+
+describe('HFOV: the usual set rate against the adult frequencies as read', () => {
+  it('3 Hz (180 /min) is the usual minimum, and 10 Hz (600 /min) within the usual range; both possible', () => {
+    expect(HFOV_USUAL_RATE_PER_MIN.min).toBe(ADULT_HFOV_HZ.min * 60);
+    expect(ADULT_HFOV_HZ.max * 60).toBeLessThanOrEqual(HFOV_USUAL_RATE_PER_MIN.max!);
+    expect(ADULT_HFOV_HZ.max * 60).toBeLessThanOrEqual(fieldById('vent_rate')!.hard!.max!);
+    expect(fieldById('vent_rate')!.boundsSource).toContain('10.1186/cc2182');
   });
 });
