@@ -41,7 +41,8 @@
  * PRVC adapts its pressure; a starting pressure control; the end-expiratory pressure driving pressure
  * is measured from; a worked alveolar PO2 on air at sea level, with its water vapour pressure; West's
  * model atmosphere against the pressures measured on Everest; the arterial O2 content and delivery; the
- * normal a/A ratio; the oscillation frequencies of HFOV in adults.
+ * normal a/A ratio; the oscillation frequencies of HFOV in adults; the oldest verified age and the
+ * height of the highest summit, behind the bounds of age and altitude.
  */
 import { describe, expect, it } from 'vitest';
 import { VT_PER_KG_HARD_MAX, VT_PER_KG_USUAL } from '../../server/src/core/analysis/per-kg-volume';
@@ -822,5 +823,27 @@ describe('HFOV: the usual set rate against the adult frequencies as read', () =>
     expect(ADULT_HFOV_HZ.max * 60).toBeLessThanOrEqual(HFOV_USUAL_RATE_PER_MIN.max!);
     expect(ADULT_HFOV_HZ.max * 60).toBeLessThanOrEqual(fieldById('vent_rate')!.hard!.max!);
     expect(fieldById('vent_rate')!.boundsSource).toContain('10.1186/cc2182');
+  });
+});
+
+// The extremes behind two fields' bounds, as read: the oldest person whose age has been verified lived 122 years
+// and 164 days (the English Wikipedia article on Jeanne Calment, en.wikipedia.org); the summit of Mount Everest
+// is at 8,848 m (the abstract of West JB et al., J Appl Physiol 1983, read above).
+const OLDEST_VERIFIED_YEARS = 122 + 164 / 365.25;
+const EVEREST_SUMMIT_M = 8848;
+
+describe('the bounds of age and altitude against the extremes as read', () => {
+  it('122 years and 164 days is possible but above the usual maximum (an age in months written as years is likelier)', () => {
+    const age = fieldById('age')!;
+    expect(OLDEST_VERIFIED_YEARS).toBeLessThanOrEqual(age.hard!.max!);
+    expect(OLDEST_VERIFIED_YEARS).toBeGreaterThan(age.soft!.max!);
+    expect(age.boundsSource).toContain('122 years and 164 days');
+  });
+
+  it('the summit of Everest, 8,848 m, is a possible altitude, above the usual maximum (an altitude in feet written as metres is likelier)', () => {
+    const altitude = fieldById('altitude')!;
+    expect(EVEREST_SUMMIT_M).toBeLessThanOrEqual(altitude.hard!.max!);
+    expect(EVEREST_SUMMIT_M).toBeGreaterThan(altitude.soft!.max!);
+    expect(altitude.boundsSource).toContain('8,848 m, read in the abstract of West JB et al.');
   });
 });
