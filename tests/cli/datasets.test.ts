@@ -333,7 +333,8 @@ describe('parallel runs', () => {
     cpSync(join(process.cwd(), 'samples'), join(dir, 'samples'), { recursive: true });
     for (let i = 0; i < 40; i++) writeFileSync(join(dir, `note-${String(i).padStart(2, '0')}.pneu`), `@ 08:00\nvitals spo2 ${90 + (i % 15)}\nabg 7.40/40/${60 + i}/24.4\n`);
     const cli = join(process.cwd(), 'dist/cli.js');
-    const runWith = (workers: string, args: string[]) => spawnSync(process.execPath, [cli, ...args], { cwd: dir, encoding: 'utf8', env: { ...process.env, PNEUMARK_WORKERS: workers, NO_COLOR: '1' } });
+    // The indented JSON of these 44 notes is over 1 MB, spawnSync's default buffer: a larger one, or the outputs are cut.
+    const runWith = (workers: string, args: string[]) => spawnSync(process.execPath, [cli, ...args], { cwd: dir, encoding: 'utf8', maxBuffer: 1 << 28, env: { ...process.env, PNEUMARK_WORKERS: workers, NO_COLOR: '1' } });
     // JSON piped is compact; indented (--indented) and version 2 are written by the workers too.
     for (const args of [['check', '.'], ['check', '--format', 'json', '.'], ['check', '--format', 'json', '--indented', '.'], ['check', '--format', 'json', '--json-version', '2', '.'], ['export', '--format', 'csv', '.']]) {
       const single = runWith('0', args);

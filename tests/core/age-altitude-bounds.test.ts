@@ -1,5 +1,5 @@
 // Usual (soft) bounds of age and altitude, and the unit a finding offers for them. Sources, as in
-// the field registry: the oldest verified age is 122 years (from memory), and above 110 years is
+// the field registry: the oldest verified age is 122 years (read in the Wikipedia article on Jeanne Calment), and above 110 years is
 // unusual (common practice, no source); the highest permanently inhabited places are about
 // 5,100 m (from memory), the lowest dry land, the Dead Sea shore, about −430 m (from memory).
 // A unit is offered (PN204, PN301, PN302) only where the number is usual in it, not merely

@@ -2,9 +2,11 @@
 // with it (PN327 above it on oxygen, PN328 below it, PN329 hypercapnia under an ordinary target).
 // The targets themselves: O'Driscoll BR, Howard LS, Earis J, Mak V, BTS guideline for oxygen use in
 // adults in healthcare and emergency settings, Thorax 2017;72(Suppl 1):ii1–ii90 — 94–98 % for most
-// acutely ill adults, 88–92 % for those at risk of hypercapnic respiratory failure (from memory); and
-// Beasley R et al., Thoracic Society of Australia and New Zealand oxygen guidelines for acute oxygen
-// use in adults, Respirology 2015;20:1182–1191 — 92–96 % (from memory). Invented notes only.
+// acutely ill adults, 88–92 % for those at risk of hypercapnic respiratory failure (read in its table 2
+// at thorax.bmj.com); and Beasley R et al., Thoracic Society of Australia and New Zealand oxygen
+// guidelines for acute oxygen use in adults, Respirology 2015;20:1182–1191 — 92–96 % (read in the
+// abstract of its authors' letter of 2016 at ahro.austin.org.au); see tests/physiology/sources-read.test.ts.
+// Invented notes only.
 import { describe, expect, it } from 'vitest';
 import { checkNote, type Settings } from '../../server/src/core';
 import { targetInForce } from '../../server/src/core/analysis/spo2-target';
@@ -23,7 +25,7 @@ function targets(text: string, settings: Partial<Settings> = {}): (string | null
 
 describe('the SpO2 target field', () => {
   it('reads two whole percentages joined by a hyphen or an en dash, with or without %', () => {
-    // BTS 2017 (from memory): 88–92 % at risk of hypercapnic respiratory failure, 94–98 % otherwise.
+    // BTS 2017 (read in its table 2): 88–92 % at risk of hypercapnic respiratory failure, 94–98 % otherwise.
     for (const written of ['target 88-92', 'target 88-92 %', 'target 88-92%', 'target 88–92', 'spo2_target 88–92 %']) {
       const text = `@ day 1 09:00\noxygen cannula 2 L/min, ${written}`;
       expect(codes(text), written).toEqual([]);

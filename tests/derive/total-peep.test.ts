@@ -1,8 +1,9 @@
 // Total PEEP (`peep_total`, measured in an end-expiratory hold) and intrinsic PEEP (`autopeep`, the
 // total above the set PEEP). Where a total PEEP is measured, driving pressure and static compliance
-// use plateau − total PEEP, the elastic pressure across the respiratory system (common practice, no
-// source; Amato MBP et al., "Driving pressure and survival in the acute respiratory distress
-// syndrome", NEJM 2015, define the driving pressure as plateau − PEEP: which PEEP is from memory).
+// use plateau − total PEEP, the elastic pressure across the respiratory system (the plateau less the
+// end-expiratory pressure of the respiratory system, read in the abstract of a 2018 review, PMC6212354;
+// Amato MBP et al., "Driving pressure and survival in the acute respiratory distress syndrome", NEJM
+// 2015, define the driving pressure as plateau − PEEP: which PEEP is from memory).
 // PN418: a total PEEP below the set PEEP, above the plateau, or an intrinsic PEEP that is not total −
 // set, beyond 1 cmH2O of rounding (common practice, no source).
 import { describe, expect, it } from 'vitest';

@@ -4,7 +4,8 @@
  * of blood, ABE = (1 − 0.014 × Hb) × (HCO3 − 24.8 + (1.43 × Hb + 7.7) × (pH − 7.40)), Hb in g/dL.
  * Source of both: CLSI C46-A2, Blood Gas and pH Analysis and Related Measurements, Approved
  * Guideline, Second Edition, 2009; Siggaard-Andersen O, The acid-base status of the blood, 4th
- * edition, 1974 (from memory). Every expected value is worked by hand from those forms, the
+ * edition, 1974 (from memory; their general form, and the ABE against another standardisation, read in
+ * the abstract of Lang & Zander 2002: tests/physiology/sources-read.test.ts). Every expected value is worked by hand from those forms, the
  * arithmetic beside it; the gases are invented.
  */
 import fc from 'fast-check';

@@ -80,7 +80,7 @@ describe('A–a gradient', () => {
   });
 });
 
-describe('a/A ratio (Gilbert & Keighley 1974; from memory: normal ≳ 0.75)', () => {
+describe('a/A ratio (Gilbert & Keighley 1974, from memory; normal above 0.75, read at derangedphysiology.com: tests/physiology/sources-read.test.ts)', () => {
   it('healthy: PaO2 90 / PAO2 100 = 0.9; severe shunt on oxygen: 60 / 663 ≈ 0.09', () => {
     expect(arterialAlveolarRatio(90, 100)).toBeCloseTo(0.9, 12);
     expect(arterialAlveolarRatio(60, 663)).toBeCloseTo(0.0905, 4);

@@ -9,7 +9,7 @@ import {
 } from '../../server/src/core/physiology/oxygen-transport';
 import { assertTotal, awkwardDouble, exportedFunctionNames, totality } from './helpers';
 
-describe('arterial O2 content (West, Respiratory Physiology: The Essentials; from memory)', () => {
+describe('arterial O2 content (West, Respiratory Physiology: The Essentials, from memory; the form read on openanesthesia.org, and a worked value in tests/physiology/sources-read.test.ts)', () => {
   it('Hb 15 g/dL, SaO2 97.5 %, PaO2 100 → ≈ 20 mL/dL (normal arterial blood)', () => {
     expect(Math.abs((arterialO2Content(15, 0.975, 100) ?? 0) - 20)).toBeLessThanOrEqual(0.2);
   });
@@ -27,7 +27,7 @@ describe('arterial O2 content (West, Respiratory Physiology: The Essentials; fro
   });
 });
 
-describe('O2 delivery (standard physiology; from memory: normal ≈ 1,000 mL/min)', () => {
+describe('O2 delivery (standard physiology; normal ≈ 1,000 mL/min, read in a worked value at e-safe-anaesthesia.org: tests/physiology/sources-read.test.ts)', () => {
   it('CO 5 L/min × CaO2 20 mL/dL × 10 = 1,000 mL/min', () => {
     expect(oxygenDelivery(5, 20)).toBe(1000);
   });

@@ -34,33 +34,52 @@
  * delta ratio; NIST's conventional cmH2O and foot; the usual 2–5 mmHg of the arterial to end-tidal
  * CO2 gradient; the compliance of a healthy chest wall and respiratory system; a later form of Buck's
  * vapour pressure equation; the Safe Harbor list of identifiers; the Venturi settings and their flows.
+ *
+ * Read in December 2026 (session 31), each beside its test at the end of this file: the SpO2 targets
+ * of BTS 2017 and TSANZ 2015; the general form of the base excess and a standardisation of it (Lang &
+ * Zander 2002), and the CO2 solubility of the Henderson–Hasselbalch form as two sources give it; how
+ * PRVC adapts its pressure; a starting pressure control; the end-expiratory pressure driving pressure
+ * is measured from; a worked alveolar PO2 on air at sea level, with its water vapour pressure; West's
+ * model atmosphere against the pressures measured on Everest; the arterial O2 content and delivery; the
+ * normal a/A ratio; the oscillation frequencies of HFOV in adults; the oldest verified age and the
+ * height of the highest summit, behind the bounds of age and altitude.
  */
 import { describe, expect, it } from 'vitest';
 import { VT_PER_KG_HARD_MAX, VT_PER_KG_USUAL } from '../../server/src/core/analysis/per-kg-volume';
 import { venturiFio2High } from '../../server/src/core/checks/venturi-fio2';
 import { venturiSetting } from '../../server/src/core/checks/collected';
 import { tidalVolumePerKg } from '../../server/src/core/checks/vt-per-kg';
+import { derived } from '../derive/helpers';
 import { acidBaseReading } from '../../server/src/core/checks/interpretations';
 import {
+  actualBaseExcess,
+  BASE_EXCESS_TOLERANCE_MMOL_L,
+  hco3FromPhPco2,
+  standardBaseExcess,
   expectedPaco2MetabolicAcidosis,
   expectedPaco2MetabolicAlkalosis,
   RESPIRATORY_HCO3_COEFFICIENTS_PER_10_MMHG,
   SOURCES as ACID_BASE,
 } from '../../server/src/core/physiology/acid-base';
-import { OSI_MAX_SPO2_PERCENT, oxygenationIndex, oxygenSaturationIndex, SOURCES as GAS_EXCHANGE } from '../../server/src/core/physiology/gas-exchange';
+import { alveolarPo2Full, alveolarPo2Simplified, arterialAlveolarRatio, OSI_MAX_SPO2_PERCENT, oxygenationIndex, oxygenSaturationIndex, SOURCES as GAS_EXCHANGE } from '../../server/src/core/physiology/gas-exchange';
 import { SOURCES as MECHANICS } from '../../server/src/core/physiology/mechanics';
 import { VENTURI_PERCENT } from '../../server/src/core/syntax/parser';
 import { METRES_PER_FOOT, MMHG_PER_CMH2O, MMHG_PER_KPA, PA_PER_CMH2O, PA_PER_MMHG, SOURCES as UNIT_SOURCES } from '../../server/src/core/physiology/units';
 import { deltaRatioBand } from '../../server/src/core/physiology/acid-base';
 import { COMPLIANCE_CEILING_ML_PER_CMH2O } from '../../server/src/core/physiology/mechanics';
-import { barometricFromAltitudeStandard, SOURCES as ATMOSPHERE, waterVapourPressureMmhg } from '../../server/src/core/physiology/atmosphere';
+import { barometricFromAltitudeStandard, barometricFromAltitudeWest, inspiredPo2Humidified, SOURCES as ATMOSPHERE, WATER_VAPOUR_37C_MMHG, waterVapourPressureMmhg } from '../../server/src/core/physiology/atmosphere';
 import { PLACEHOLDERS, type PrivacyKind } from '../../server/src/core/privacy/types';
 import { PRIVACY_CHECKS, possibleName } from '../../server/src/core/checks/privacy';
 import { derivedDef } from '../../server/src/core/derive/registry';
 import { ADULT_FROM_YEARS } from '../../server/src/core/physiology/adults';
 import { fieldById } from '../../server/src/core/fields/registry';
-import { SOURCES as TRANSPORT } from '../../server/src/core/physiology/oxygen-transport';
-import { settingsSchema } from '../../server/src/core/settings';
+import { arterialO2Content, DISSOLVED_O2_ML_PER_DL_PER_MMHG, oxygenDelivery, SOURCES as TRANSPORT } from '../../server/src/core/physiology/oxygen-transport';
+import { settingsSchema, type Settings } from '../../server/src/core/settings';
+import { checkNote } from '../../server/src/core';
+import { targetInForce } from '../../server/src/core/analysis/spo2-target';
+import { complianceImplausible } from '../../server/src/core/checks/compliance-reach';
+import { HFOV_USUAL_RATE_PER_MIN } from '../../server/src/core/checks/value-bounds';
+import { ORDINARY_TARGET_FROM_PCT, spo2AboveTarget, spo2BelowTarget, targetBesideHypercapnia } from '../../server/src/core/checks/spo2-target';
 
 /** Per mmHg, as read; Pneumark's spans are per 10 mmHg. */
 const NARINS_EMMETT_AS_ADAPTED = { acuteAcidosis: 0.1, chronicAcidosis: 0.35, acuteAlkalosis: 0.2, chronicAlkalosis: 0.5 } as const;
@@ -520,5 +539,311 @@ describe('the standard atmosphere Pneumark uses, against its constants as read',
 
   it('the citation says where the constants were read', () => {
     expect(ATMOSPHERE['us-standard-atmosphere-1976']).toContain('crnslab.org/util/atmo.php');
+  });
+});
+
+// ---------------------------------------------------------------------------------------------
+// Read in December 2026 (session 31).
+
+// The SpO2 targets as read. BTS 2017 (O'Driscoll BR et al., Thorax 2017;72(Suppl 1):ii1–ii90), in its
+// table 2 at thorax.bmj.com: an initial target range of 94–98 % for serious illness, and 88–92 % pending
+// blood gases where COPD or another risk of hypercapnic respiratory failure coexists; the same two ranges
+// on the British Thoracic Society's own page of the guideline (brit-thoracic.org.uk, its update of
+// December 2019). TSANZ 2015 (Beasley R et al., Respirology 2015;20:1182–1191): 92–96 % as the range it
+// recommends, read in the abstract of its authors' letter comparing it with 94–98 % (Respirology 2016,
+// doi 10.1111/resp.12879, at ahro.austin.org.au), and 88–92 % in COPD and other causes of chronic
+// respiratory failure, its recommendation 8 (the guideline as reproduced at fliphtml5.com, page 14).
+const SPO2_TARGETS_AS_READ = {
+  bts: [[94, 98], [88, 92]],
+  tsanz: [[92, 96], [88, 92]],
+} as const;
+
+describe('the SpO2 targets Pneumark offers, against BTS 2017 and TSANZ 2015 as read', () => {
+  const ranges = [...SPO2_TARGETS_AS_READ.bts, ...SPO2_TARGETS_AS_READ.tsanz];
+
+  it.each(ranges)('%d–%d %%: a value of the spo2Target setting, which gives a note that writes none that target', (low, high) => {
+    const spo2Target = `${low}-${high}` as Settings['spo2Target'];
+    expect(settingsSchema.safeParse({ spo2Target }).success).toBe(true);
+    const result = checkNote('@ day 1 09:00\nvitals spo2 95', { spo2Target });
+    const target = targetInForce(result.analysis.timeline.timepoints[0]!.values, { spo2Target });
+    expect(target && [target.lowPct, target.highPct]).toEqual([low, high]);
+  });
+
+  it('the setting offers no range that was not read', () => {
+    const offered = ['88-92', '92-96', '94-98'];
+    expect(new Set(ranges.map(([low, high]) => `${low}-${high}`))).toEqual(new Set(offered));
+    for (const other of ['90-94', '92-98', '94-99']) expect(settingsSchema.safeParse({ spo2Target: other }).success, other).toBe(false);
+  });
+
+  it('PN329 speaks under the ordinary targets read (lower end 92 % or more) and not under 88–92 %', () => {
+    expect(SPO2_TARGETS_AS_READ.bts[0][0]).toBeGreaterThanOrEqual(ORDINARY_TARGET_FROM_PCT);
+    expect(SPO2_TARGETS_AS_READ.tsanz[0][0]).toBeGreaterThanOrEqual(ORDINARY_TARGET_FROM_PCT);
+    expect(SPO2_TARGETS_AS_READ.bts[1][0]).toBeLessThan(ORDINARY_TARGET_FROM_PCT);
+  });
+
+  it('every range read lies within the bounds of the spo2_target field', () => {
+    const field = fieldById('spo2_target')!;
+    for (const [low, high] of ranges) {
+      expect(low).toBeGreaterThanOrEqual(field.hard!.min!);
+      expect(high).toBeLessThanOrEqual(field.hard!.max!);
+    }
+  });
+
+  it('the citations say where the targets were read', () => {
+    for (const check of [spo2AboveTarget, spo2BelowTarget, targetBesideHypercapnia]) {
+      expect(check.source, check.code).toContain('table 2 at thorax.bmj.com');
+      expect(check.source, check.code).toContain('brit-thoracic.org.uk');
+      expect(check.source, check.code).not.toContain('from memory');
+    }
+    const bounds = fieldById('spo2_target')!.boundsSource ?? '';
+    expect(bounds).toContain('ahro.austin.org.au');
+    expect(bounds).not.toContain('from memory');
+  });
+});
+
+// The base excess as read in the abstract of Lang W, Zander R. The accuracy of calculated base excess in
+// blood. Clin Chem Lab Med 2002;40(4):404–410 (metajournal.com): most forms rest on the Van Slyke equation,
+// BE = Z × ((cHCO3 − cHCO3 at pH 7.4) + β × (pH − 7.4)), Z depending on the Hb only; the authors recommend
+// BE = (1 − 0.0143 × cHb) × ((0.0304 × PCO2 × 10^(pH − 6.1) − 24.26) + (9.5 + 1.63 × cHb) × (pH − 7.4))
+// − 0.2 × cHb × (1 − sO2), cHb in g/dL; the seven forms compared have mean errors of ±0.86 to ±1.50 mmol/L
+// against 148 reference samples. The constants of CLSI C46-A2 that Pneumark uses were not read.
+function zander2002AsRead(ph: number, hco3: number, hbGdl: number, so2: number): number {
+  return (1 - 0.0143 * hbGdl) * (hco3 - 24.26 + (9.5 + 1.63 * hbGdl) * (ph - 7.4)) - 0.2 * hbGdl * (1 - so2);
+}
+
+describe('base excess: the Van Slyke form as read, and the actual base excess against the form Lang & Zander recommend', () => {
+  it('both forms Pneumark uses are Z × ((HCO3 − its value at pH 7.40) + β × (pH − 7.40)): 0 at pH 7.40 and that HCO3, and Z per mmol/L of HCO3', () => {
+    expect(standardBaseExcess(7.4, 24.4)).toBeCloseTo(0, 12);
+    expect(standardBaseExcess(7.3, 20)! - standardBaseExcess(7.3, 19)!).toBeCloseTo(0.93, 12);
+    for (const hb of [7, 12, 17]) {
+      expect(actualBaseExcess(7.4, 24.8, hb)).toBeCloseTo(0, 12);
+      expect(actualBaseExcess(7.3, 20, hb)! - actualBaseExcess(7.3, 19, hb)!).toBeCloseTo(1 - 0.014 * hb, 12);
+    }
+  });
+
+  it('with the same HCO3, the actual base excess is within 2 mmol/L of theirs in oxygenated blood (pH 7.0–7.7, HCO3 5–50, Hb 7–17 g/dL), inside the ±3 mmol/L a stated base excess is allowed', () => {
+    let largest = 0;
+    for (let ph = 7.0; ph <= 7.7 + 1e-9; ph += 0.05) {
+      for (let hco3 = 5; hco3 <= 50; hco3 += 2.5) {
+        for (let hb = 7; hb <= 17; hb += 1) {
+          largest = Math.max(largest, Math.abs(actualBaseExcess(ph, hco3, hb)! - zander2002AsRead(ph, hco3, hb, 1)));
+        }
+      }
+    }
+    expect(largest).toBeLessThan(2);
+    expect(largest).toBeLessThan(BASE_EXCESS_TOLERANCE_MMOL_L);
+  });
+
+  it('pH 7.40, HCO3 24.8, Hb 15: 0 here, 0.78 × 0.54 = 0.42 mmol/L by theirs (their HCO3 at pH 7.4 is 24.26)', () => {
+    expect(actualBaseExcess(7.4, 24.8, 15)).toBeCloseTo(0, 12);
+    expect(zander2002AsRead(7.4, 24.8, 15, 1)).toBeCloseTo((1 - 0.0143 * 15) * 0.54, 12);
+  });
+
+  it('the citation says what was read and that the constants are still recalled', () => {
+    expect(ACID_BASE['van-slyke-sbe']).toContain('Clin Chem Lab Med 2002;40(4):404–410');
+    expect(ACID_BASE['van-slyke-sbe']).toContain('constants from memory');
+  });
+});
+
+// The CO2 solubility of the Henderson–Hasselbalch form, as read: HCO3 = 0.0307 × pCO2 × 10^(pH − 6.105)
+// after NCCLS (1994), in table 1 of a 2018 study in Vet Med Sci 4(3):206–217 (PMC6090410); and
+// 0.0304 × PCO2 × 10^(pH − 6.1) in the form of Lang & Zander 2002 as read above.
+describe('Henderson–Hasselbalch: the HCO3 from pH and PaCO2 against two forms as read', () => {
+  it.each([[7.1, 60], [7.4, 40], [7.55, 25], [7.25, 80]])('pH %f, PaCO2 %f mmHg: within 1.2 %% of both', (ph, paco2) => {
+    const ours = hco3FromPhPco2(ph, paco2)!;
+    for (const read of [0.0307 * paco2 * 10 ** (ph - 6.105), 0.0304 * paco2 * 10 ** (ph - 6.1)]) {
+      expect(Math.abs(ours / read - 1)).toBeLessThan(0.012);
+    }
+  });
+
+  it('the citation says where the solubility was read', () => {
+    expect(ACID_BASE['henderson-hasselbalch']).toContain('PMC6090410');
+  });
+});
+
+// How PRVC adapts, as read on Cooper University Health Care's emergency medicine teaching page on PRVC
+// (emdaily1.cooperhealth.org): the ventilator adjusts the applied pressure up or down according to whether the
+// exhaled tidal volume is below or above the target, and a greater inspiratory effort increases the inspiratory
+// flow at a set pressure; and on the PRVC page of the Department of Anaesthesia and Intensive Care, Chinese
+// University of Hong Kong (aic.cuhk.edu.hk/web8/prvc.htm): a volume too high lowers the pressure of the next
+// breath, one too low raises it. So a patient whose effort draws in the target is given less pressure.
+describe('PRVC: the other reading PN407 names, against how the mode adapts as read', () => {
+  it('a peak equal to the PEEP under PRVC names a patient breathing the target unsupported, and under VC does not', () => {
+    const prvc = checkNote('@ 08:00\nvent mode PRVC, vt 450 mL, peep 8, peak 8').findings.filter((f) => f.code === 'PN407');
+    const vc = checkNote('@ 08:00\nvent mode VC, vt 450 mL, peep 8, peak 8').findings.filter((f) => f.code === 'PN407');
+    expect(prvc).toHaveLength(1);
+    expect(prvc[0]!.message).toContain("PRVC lowers its pressure as the patient's effort grows");
+    expect(vc).toHaveLength(1);
+    expect(vc[0]!.message).not.toContain('effort');
+  });
+
+  it('the check says where the mode\'s adaptation was read', () => {
+    expect(complianceImplausible.source).toContain('emdaily1.cooperhealth.org');
+    expect(complianceImplausible.source).toContain('aic.cuhk.edu.hk/web8/prvc.htm');
+  });
+});
+
+// A starting pressure control as read in the open textbook Mechanical Ventilators (eCampusOntario), its
+// chapter on the pressure control setting (ecampusontario.pressbooks.pub): 14 cmH2O is a safe pressure
+// control to start at, keeping peak pressures well below 35 cmH2O even with a slightly higher PEEP.
+// The usual 10–25 cmH2O above PEEP that the field's bounds name is still from memory.
+const STARTING_PRESSURE_CONTROL_CMH2O = 14;
+const PEAK_KEPT_BELOW_CMH2O = 35;
+
+describe('the set inspiratory pressure (pinsp): a starting pressure control as read', () => {
+  it('14 cmH2O lies within the usual bounds (the value is above PEEP), and with a PEEP of 5 to 10 gives a peak below 35', () => {
+    const field = fieldById('insp_pressure')!;
+    expect(STARTING_PRESSURE_CONTROL_CMH2O).toBeGreaterThanOrEqual(field.hard!.min!);
+    expect(STARTING_PRESSURE_CONTROL_CMH2O).toBeLessThanOrEqual(field.soft!.max!);
+    for (const peep of [5, 10]) expect(STARTING_PRESSURE_CONTROL_CMH2O + peep).toBeLessThan(PEAK_KEPT_BELOW_CMH2O);
+    expect(field.boundsSource).toContain('ecampusontario.pressbooks.pub');
+  });
+});
+
+// Driving pressure as read: "the difference of the plateau pressure and end-expiratory pressure of the
+// respiratory system", in the abstract of a 2018 review (pmc.ncbi.nlm.nih.gov/articles/PMC6212354); and
+// ΔP = Pplat − PEEP or VT / CRS in table 1 of a 2020 review (PMC7449829). Which PEEP Amato 2015 meant is
+// not read; that an end-expiratory hold measures the end-expiratory pressure of the respiratory system
+// (the total PEEP) is common practice, no source.
+describe('driving pressure: from the end-expiratory pressure of the respiratory system, as read', () => {
+  it('plateau 27 less the total PEEP of a hold, 12: 15 cmH2O; with no hold, less the set PEEP 8: 19, which is VT / Crs', () => {
+    expect(derived('@ 08:00\nvent mode VC, vt 450, rate 16, peep 8, peep_total 12, plateau 27', 'driving_pressure').value).toBe(15);
+    expect(derived('@ 08:00\nvent mode VC, vt 450, rate 16, peep 8, plateau 27', 'driving_pressure').value).toBe(19);
+    const crs = derived('@ 08:00\nvent mode VC, vt 450, rate 16, peep 8, plateau 27', 'compliance_static').value;
+    expect(450 / crs).toBeCloseTo(19, 9);
+  });
+});
+
+// The sample values of the English Wikipedia article "Alveolar gas equation", as read in its copy at
+// primidi.com/alveolar_gas_equation/equation, for air at sea level at 37 °C: pAO2 107 mmHg (14.2 kPa),
+// FiO2 0.21, atmospheric pressure 760 mmHg, water vapour pressure at body temperature 47 mmHg (6.25 kPa),
+// paCO2 36 mmHg, respiratory quotient 0.8.
+const ALVEOLAR_SAMPLE_AS_READ = { pao2Alveolar: 107, fio2: 0.21, pb: 760, ph2o: 47, paco2: 36, rq: 0.8 } as const;
+
+describe('the alveolar gas equation against a worked value as read', () => {
+  const s = ALVEOLAR_SAMPLE_AS_READ;
+
+  it('the water vapour pressure Pneumark takes at 37 °C is the 47 mmHg read, and Buck\'s equation gives it to the nearest mmHg (47.1)', () => {
+    expect(WATER_VAPOUR_37C_MMHG).toBe(s.ph2o);
+    expect(Math.round(waterVapourPressureMmhg(37)!)).toBe(s.ph2o);
+  });
+
+  it('the full form gives the 107 mmHg read to the nearest mmHg (0.21 × 713 − 36 × (0.21 + 0.79 ÷ 0.8) = 106.6); the simplified form, 104.7, does not', () => {
+    const pio2 = inspiredPo2Humidified(s.fio2, s.pb)!;
+    expect(pio2).toBeCloseTo(149.73, 9);
+    expect(Math.round(alveolarPo2Full(s.fio2, pio2, s.paco2, s.rq)!)).toBe(s.pao2Alveolar);
+    expect(Math.round(alveolarPo2Simplified(pio2, s.paco2, s.rq)!)).not.toBe(s.pao2Alveolar);
+  });
+
+  it('the citations say where the values were read', () => {
+    expect(ATMOSPHERE['inspired-po2']).toContain('primidi.com');
+    expect(GAS_EXCHANGE['alveolar-gas-equation']).toContain('primidi.com');
+  });
+});
+
+// The mean barometric pressures measured on Mount Everest, as read in the abstract of West JB et al.
+// Barometric pressures at extreme altitudes on Mt. Everest: physiological significance. J Appl Physiol
+// 1983;54(5):1188–1194 (in a copy of the article): 400.4 Torr at 5,400 m, 351.0 at 6,300 m, 283.6 at
+// 8,050 m and 253.0 on the summit, 8,848 m; all considerably higher than the ICAO Standard Atmosphere
+// predicts. West's model atmosphere of 1996, Pneumark's default, is not read (from memory): this holds
+// its pressures to the ones measured.
+const EVEREST_MEASURED_TORR = [[5400, 400.4], [6300, 351.0], [8050, 283.6], [8848, 253.0]] as const;
+
+describe('West\'s model atmosphere against the pressures measured on Everest, as read', () => {
+  it.each(EVEREST_MEASURED_TORR)('%d m: within 1.3 %% (4.5 mmHg) of the %f Torr measured', (altitudeM, measured) => {
+    const model = barometricFromAltitudeWest(altitudeM)!;
+    expect(Math.abs(model - measured)).toBeLessThan(4.5);
+    expect(Math.abs(model / measured - 1)).toBeLessThan(0.013);
+  });
+
+  it('the standard atmosphere reads lower than each pressure measured, and more than 15 mmHg lower on the summit', () => {
+    for (const [altitudeM, measured] of EVEREST_MEASURED_TORR) expect(barometricFromAltitudeStandard(altitudeM)!).toBeLessThan(measured);
+    expect(253.0 - barometricFromAltitudeStandard(8848)!).toBeGreaterThan(15);
+  });
+
+  it('the citations say what was read and what is still recalled', () => {
+    expect(ATMOSPHERE['west-1983']).toContain('351.0 at 6,300 m, 283.6 at 8,050 m');
+    expect(ATMOSPHERE['west-1996']).toContain('the paper and its equation from memory');
+  });
+});
+
+// The arterial O2 content and delivery, as read: CaO2 = (1.34 × Hgb × SaO2) + (0.003 × PaO2) and DO2 = CO × CaO2
+// on OpenAnesthesia's page on O2 delivery (openanesthesia.org); and a worked value in the e-Learning for
+// Healthcare anaesthesia session on oxygen delivery (e-safe-anaesthesia.org): Hb 150 g/L × 1.34 × 0.98
+// saturation + 0.23 mL/L per kPa × 13 kPa = 197 + 3 = 200 mL/L, times a cardiac output of 5 L/min, an O2 flux
+// of 1,000 mL/min.
+const WORKED_CONTENT_AS_READ = { hbGdl: 15, so2: 0.98, po2Kpa: 13, dissolvedMlPerLPerKpa: 0.23, contentMlPerL: 200, coLPerMin: 5, fluxMlPerMin: 1000 } as const;
+
+describe('the arterial O2 content and delivery, against a worked value as read', () => {
+  const w = WORKED_CONTENT_AS_READ;
+
+  it('the dissolved O2 of 0.003 mL/dL per mmHg is the 0.23 mL/L per kPa read, to 3 % (0.00307 per mmHg)', () => {
+    const perMmhgAsRead = w.dissolvedMlPerLPerKpa / 10 / MMHG_PER_KPA;
+    expect(Math.abs(DISSOLVED_O2_ML_PER_DL_PER_MMHG / perMmhgAsRead - 1)).toBeLessThan(0.03);
+  });
+
+  it('Hb 15 g/dL, saturation 0.98, PO2 13 kPa: 20.0 mL/dL (the 200 mL/L read), and at 5 L/min 1,000 mL/min', () => {
+    const cao2 = arterialO2Content(w.hbGdl, w.so2, w.po2Kpa * MMHG_PER_KPA)!;
+    expect(Math.round(cao2 * 10)).toBe(w.contentMlPerL);
+    expect(Math.round(oxygenDelivery(w.coLPerMin, cao2)! / 10) * 10).toBe(w.fluxMlPerMin);
+  });
+
+  it('the citation says where the form and the worked value were read', () => {
+    expect(TRANSPORT['oxygen-content']).toContain('openanesthesia.org');
+    expect(TRANSPORT['oxygen-content']).toContain('e-safe-anaesthesia.org');
+  });
+});
+
+// The a/A ratio as read in the chapter on oxygen tension-based indices of oxygenation at derangedphysiology.com:
+// the arterial over the alveolar PO2; over 75 % probably normal; unlike the other indices unaffected by FiO2
+// or barometric pressure. Gilbert & Keighley 1974 itself not read.
+const NORMAL_AA_RATIO_ABOVE = 0.75;
+
+describe('the a/A ratio against its normal as read', () => {
+  it('a healthy gas on air at sea level (PaO2 95, PaCO2 40, R 0.8) is above 0.75; the same lungs with a shunt on oxygen far below', () => {
+    const pio2Air = inspiredPo2Humidified(0.21, 760)!;
+    expect(arterialAlveolarRatio(95, alveolarPo2Full(0.21, pio2Air, 40)!)!).toBeGreaterThan(NORMAL_AA_RATIO_ABOVE);
+    const pio2Oxygen = inspiredPo2Humidified(1, 760)!;
+    expect(arterialAlveolarRatio(60, alveolarPo2Full(1, pio2Oxygen, 40)!)!).toBeLessThan(NORMAL_AA_RATIO_ABOVE / 5);
+  });
+
+  it('the citation says where the normal was read', () => {
+    expect(GAS_EXCHANGE['gilbert-keighley-1974']).toContain('derangedphysiology.com');
+  });
+});
+
+// The oscillation frequency of HFOV in adults as read in the abstract of a clinical review of HFOV in adults in
+// Critical Care (doi 10.1186/cc2182, ccforum.biomedcentral.com): frequencies generally between 3 and 10 Hz.
+// The higher frequencies used in infants (up to about 15 Hz) are not read (from memory).
+const ADULT_HFOV_HZ = { min: 3, max: 10 } as const;
+
+describe('HFOV: the usual set rate against the adult frequencies as read', () => {
+  it('3 Hz (180 /min) is the usual minimum, and 10 Hz (600 /min) within the usual range; both possible', () => {
+    expect(HFOV_USUAL_RATE_PER_MIN.min).toBe(ADULT_HFOV_HZ.min * 60);
+    expect(ADULT_HFOV_HZ.max * 60).toBeLessThanOrEqual(HFOV_USUAL_RATE_PER_MIN.max!);
+    expect(ADULT_HFOV_HZ.max * 60).toBeLessThanOrEqual(fieldById('vent_rate')!.hard!.max!);
+    expect(fieldById('vent_rate')!.boundsSource).toContain('10.1186/cc2182');
+  });
+});
+
+// The extremes behind two fields' bounds, as read: the oldest person whose age has been verified lived 122 years
+// and 164 days (the English Wikipedia article on Jeanne Calment, en.wikipedia.org); the summit of Mount Everest
+// is at 8,848 m (the abstract of West JB et al., J Appl Physiol 1983, read above).
+const OLDEST_VERIFIED_YEARS = 122 + 164 / 365.25;
+const EVEREST_SUMMIT_M = 8848;
+
+describe('the bounds of age and altitude against the extremes as read', () => {
+  it('122 years and 164 days is possible but above the usual maximum (an age in months written as years is likelier)', () => {
+    const age = fieldById('age')!;
+    expect(OLDEST_VERIFIED_YEARS).toBeLessThanOrEqual(age.hard!.max!);
+    expect(OLDEST_VERIFIED_YEARS).toBeGreaterThan(age.soft!.max!);
+    expect(age.boundsSource).toContain('122 years and 164 days');
+  });
+
+  it('the summit of Everest, 8,848 m, is a possible altitude, above the usual maximum (an altitude in feet written as metres is likelier)', () => {
+    const altitude = fieldById('altitude')!;
+    expect(EVEREST_SUMMIT_M).toBeLessThanOrEqual(altitude.hard!.max!);
+    expect(EVEREST_SUMMIT_M).toBeGreaterThan(altitude.soft!.max!);
+    expect(altitude.boundsSource).toContain('8,848 m, read in the abstract of West JB et al.');
   });
 });

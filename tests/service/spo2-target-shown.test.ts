@@ -2,7 +2,7 @@
 // against the target in force), the hover on the target, completion of its key, and the CSV columns
 // spo2_target_low_pct and spo2_target_high_pct read back. The targets: O'Driscoll BR, Howard LS,
 // Earis J, Mak V, BTS guideline for oxygen use in adults in healthcare and emergency settings,
-// Thorax 2017;72(Suppl 1):ii1–ii90 — 88–92 % and 94–98 % (from memory). Invented notes only.
+// Thorax 2017;72(Suppl 1):ii1–ii90 — 88–92 % and 94–98 % (read in its table 2 at thorax.bmj.com, December 2026). Invented notes only.
 import { parse } from 'csv-parse/sync';
 import { describe, expect, it } from 'vitest';
 import { checkNote } from '../../server/src/core/check-note';

@@ -36,7 +36,8 @@ export const settingsSchema = z.object({
   /**
    * The SpO2 target applied to a note that writes none (`oxygen target 88-92`): `none` (the default:
    * no target unless the note writes one), or one of the ranges in use (BTS 2017: 94–98 % for most
-   * acutely ill adults, 88–92 % at risk of hypercapnic respiratory failure; TSANZ 2015: 92–96 %).
+   * acutely ill adults, 88–92 % at risk of hypercapnic respiratory failure; TSANZ 2015: 92–96 %; all three read in
+   * December 2026, session 31: see the `spo2_target` field's bounds source).
    */
   spo2Target: z.enum(['none', '88-92', '92-96', '94-98']).default('none'),
   /** Hüfner constant for oxygen content (mL O2 per g Hb). */

@@ -11,7 +11,7 @@
  * pressure; respiratory mechanics, common practice, no source). And under PRVC (the adaptive
  * family), which sets the tidal volume as a target and raises its inspiratory pressure until that
  * volume goes in: in a passive patient the pressure must rise there too. PRVC also lowers that
- * pressure as the patient's own effort draws in more of the target (from memory), so there the
+ * pressure as the patient's own effort draws in more of the target (`PRVC_ADAPTS`, read), so there the
  * finding names a patient breathing the target with little or no support as the other reading, and
  * claims nothing of the static compliance. Not under other modes (PC, PS, CPAP, NIV), which set no
  * volume, where the patient's own effort may move a volume with the airway pressure at the PEEP.
@@ -56,7 +56,14 @@ const dynamicAboveCeilingMessage = (c: DerivedValue): string =>
 const noRiseAtPeakMessage = (peak: number, vt: number, mode: string): string =>
   `Peak pressure ${formatNumber(peak, 0)} cmH2O equals the PEEP with a tidal volume of ${formatNumber(vt, 0)} mL set under ${mode}: the ventilator drove the volume in without raising the pressure, which no respiratory system allows; consistent with a transcription error in the peak pressure or the PEEP.`;
 
-/** The other reading of a low rise under PRVC: the mode lowers its pressure as the patient's effort grows (from memory). */
+/**
+ * How PRVC adapts, as read (December 2026, session 31): the source of the other reading of a low
+ * rise under PRVC.
+ */
+const PRVC_ADAPTS =
+  "PRVC sets its inspiratory pressure breath by breath from the tidal volume of the breath before, lowering it after a volume above the target and raising it after one below, and a patient's greater inspiratory effort draws a larger volume at the same pressure: read on Cooper University Health Care's emergency medicine teaching page on PRVC (emdaily1.cooperhealth.org) and on the PRVC page of the Department of Anaesthesia and Intensive Care of the Chinese University of Hong Kong (aic.cuhk.edu.hk/web8/prvc.htm). So as the patient's effort grows the mode lowers its pressure.";
+
+/** The other reading of a low rise under PRVC: the mode lowers its pressure as the patient's effort grows (`PRVC_ADAPTS`). */
 const ADAPTIVE_EFFORT = "since PRVC lowers its pressure as the patient's effort grows";
 
 const adaptiveDynamicAboveCeilingMessage = (c: DerivedValue): string =>
@@ -102,7 +109,7 @@ export const complianceImplausible = defineCheck({
     example: '@ 08:00\nvent mode VC, vt 450 mL, peep 10, plateau 11',
     fix: 'Check the plateau (a true inspiratory hold) or the peak, the PEEP and the tidal volume against the ventilator.',
   },
-  source: SOURCES['compliance-ceiling'],
+  source: `${SOURCES['compliance-ceiling']} ${PRVC_ADAPTS}`,
   runTimepoint(ctx: TimepointContext) {
     const values = ctx.timepoint.values;
     // Most timepoints state neither: asked without building the values.

@@ -12,8 +12,8 @@ import { toRange } from '../syntax/tree';
 import type { Range } from '../types';
 import { defineCheck, type TimepointContext } from './check';
 
-/** The published source of the targets (BTS 2017), read from memory. */
-const BTS_2017 = 'O\'Driscoll BR, Howard LS, Earis J, Mak V, on behalf of the BTS Emergency Oxygen Guideline Group: BTS guideline for oxygen use in adults in healthcare and emergency settings, Thorax 2017;72(Suppl 1):ii1–ii90 — a target of 94–98 % for most acutely ill adults and 88–92 % for those at risk of hypercapnic respiratory failure (from memory)';
+/** The published source of the targets (BTS 2017), read in December 2026 (session 31): see tests/physiology/sources-read.test.ts. */
+const BTS_2017 = 'O\'Driscoll BR, Howard LS, Earis J, Mak V, on behalf of the BTS Emergency Oxygen Guideline Group: BTS guideline for oxygen use in adults in healthcare and emergency settings, Thorax 2017;72(Suppl 1):ii1–ii90 — a target of 94–98 % for most acutely ill adults and 88–92 % for those at risk of hypercapnic respiratory failure (both read in its table 2 at thorax.bmj.com, the initial target range of 94–98 % for serious illness, and 88–92 % pending blood gases where COPD or another risk of hypercapnic respiratory failure coexists; both again in the British Thoracic Society\'s own page of the guideline, its update of December 2019, at brit-thoracic.org.uk; the citation read in the National Guideline Clearinghouse summary 11253)';
 
 /** The lower end of a target from which PN329 speaks: the ordinary targets (92–96 %, 94–98 %), not 88–92 %. */
 export const ORDINARY_TARGET_FROM_PCT = 92;

@@ -71,8 +71,9 @@ function ageAt(ctx: CheckContext, at: TimepointContext | null): number | null {
 }
 
 /**
- * The usual set rate in HFOV, /min: an oscillation frequency of 3 to 15 Hz (180–900 /min; common
- * practice, from memory), in place of the usual maximum of 60 /min of conventional breaths.
+ * The usual set rate in HFOV, /min: an oscillation frequency of 3 to 15 Hz (180–900 /min; 3 to 10 Hz
+ * in adults read, December 2026: see the `vent_rate` field's bounds source; up to 15 Hz in infants from
+ * memory), in place of the usual maximum of 60 /min of conventional breaths.
  */
 export const HFOV_USUAL_RATE_PER_MIN: Bounds = { min: 180, max: 900 };
 

@@ -169,8 +169,12 @@ function formulaExtras(template: string, peep: Term): ValueExtras | undefined {
  * The end-expiratory pressure the elastic pressure of a breath is measured from: the total PEEP of an
  * end-expiratory hold where one is written at this timepoint (a reading: the set PEEP plus any
  * intrinsic PEEP), else the PEEP in force (`peepLike`). Plateau − total PEEP is the pressure across
- * the respiratory system at the end of inspiration above that at the end of expiration (common
- * practice, no source; Amato 2015 write plateau − PEEP, and which PEEP they meant is from memory).
+ * the respiratory system at the end of inspiration above that at the end of expiration. Read (December
+ * 2026, session 31): driving pressure as the plateau pressure less the end-expiratory pressure of the
+ * respiratory system, in the abstract of a 2018 review at pmc.ncbi.nlm.nih.gov/articles/PMC6212354, and
+ * as Pplat − PEEP or VT / Crs in table 1 of a 2020 review at PMC7449829; that an end-expiratory hold
+ * measures that pressure (the total PEEP) is common practice, no source; which PEEP Amato 2015 meant
+ * is not read (from memory).
  */
 function elasticBase(c: DeriveContext): Term | null {
   return c.field('peep_total', 'PEEPtot') ?? c.peepLike();

@@ -12,7 +12,7 @@ import { allFinite, finiteOrNull, forBand, inClosedRange, sideOf } from './numer
 /** Citations for the formulas in this module (key → citation). */
 export const SOURCES = Object.freeze({
   'henderson-hasselbalch':
-    'Henderson–Hasselbalch equation for the carbonic acid–bicarbonate buffer, pH = 6.1 + log10(HCO3 / (0.0307 × PaCO2)), with pK′ 6.1 and CO2 solubility 0.0307 mmol/L per mmHg in plasma at 37 °C: standard physiology (Hasselbalch KA. Biochem Z 1916;78:112–144, from memory).',
+    'Henderson–Hasselbalch equation for the carbonic acid–bicarbonate buffer, pH = 6.1 + log10(HCO3 / (0.0307 × PaCO2)), with pK′ 6.1 and CO2 solubility 0.0307 mmol/L per mmHg in plasma at 37 °C: standard physiology (Hasselbalch KA. Biochem Z 1916;78:112–144, from memory). The solubility 0.0307 read in table 1 of a 2018 study in Vet Med Sci (4(3):206–217, doi 10.1002/vms3.101, PMC6090410), which computes HCO3 = 0.0307 × PCO2 × 10^(pH − 6.105) after NCCLS 1994; and 0.0304 with pK′ 6.1 in the form recommended in the abstract of Lang W, Zander R, Clin Chem Lab Med 2002;40:404–410: HCO3 by either is within 1.2 % of HCO3 here, inside the spread of analysers the consistency tolerance allows for.',
   'kassirer-bleich-1965':
     'Kassirer JP, Bleich HL. Rapid estimation of plasma carbon dioxide tension from pH and total carbon dioxide content. N Engl J Med 1965;272:1067–1068 (its title and opening read on scilit.net; [H+] (nmol/L) = 24 × PaCO2 / HCO3 read as the Henderson equation in Adrogué & Madias 2010; the volume and pages from memory).',
   'winters-1967':
@@ -42,7 +42,7 @@ export const SOURCES = Object.freeze({
   'kelly-2005':
     'Kelly AM, Kerr D, Middleton P. Validation of venous pCO2 to screen for arterial hypercarbia in patients with chronic obstructive airways disease. J Emerg Med 2005;28(4):377–379 (read in its abstract): a venous pCO2 above 45 mmHg caught all 43 patients whose arterial pCO2 was above 50 mmHg; none of the 30 with a venous pCO2 below 45 mmHg had one.',
   'van-slyke-sbe':
-    'Standard base excess (of the extracellular fluid) by the Van Slyke equation as standardised, SBE = 0.93 × (HCO3 − 24.4 + 14.8 × (pH − 7.40)) mmol/L, and the actual (blood) base excess, ABE = (1 − 0.014 × Hb) × (HCO3 − 24.8 + (1.43 × Hb + 7.7) × (pH − 7.40)) with Hb in g/dL: CLSI C46-A2, Blood Gas and pH Analysis and Related Measurements, Approved Guideline, Second Edition, 2009; Siggaard-Andersen O, The acid-base status of the blood, 4th edition, 1974, and Scand J Clin Lab Invest 1977;37(Suppl 146):15–20 (all from memory, none read here).',
+    'Standard base excess (of the extracellular fluid) by the Van Slyke equation as standardised, SBE = 0.93 × (HCO3 − 24.4 + 14.8 × (pH − 7.40)) mmol/L, and the actual (blood) base excess, ABE = (1 − 0.014 × Hb) × (HCO3 − 24.8 + (1.43 × Hb + 7.7) × (pH − 7.40)) with Hb in g/dL: CLSI C46-A2, Blood Gas and pH Analysis and Related Measurements, Approved Guideline, Second Edition, 2009; Siggaard-Andersen O, The acid-base status of the blood, 4th edition, 1974, and Scand J Clin Lab Invest 1977;37(Suppl 146):15–20 (none of them read here: their citations and constants from memory). The general form, BE = Z × ((HCO3 − HCO3 at pH 7.40) + β × (pH − 7.40)) with Z depending on the Hb only, read in the abstract of Lang W, Zander R. The accuracy of calculated base excess in blood. Clin Chem Lab Med 2002;40(4):404–410 (metajournal.com), which compares the NCCLS form with Siggaard-Andersen\'s and recommends (1 − 0.0143 × Hb) × ((0.0304 × PCO2 × 10^(pH − 6.1) − 24.26) + (9.5 + 1.63 × Hb) × (pH − 7.40)) − 0.2 × Hb × (1 − sO2), Hb in g/dL; with the same HCO3, the ABE here stays within 2 mmol/L of that form in oxygenated blood (pH 7.0–7.7, HCO3 5–50 mmol/L, Hb 7–17 g/dL); against a reference set of 148 samples the abstract gives its seven forms mean errors of ±0.86 to ±1.50 mmol/L.',
   'pneumark-base-excess-tolerance':
     'A stated base excess is accepted within ±3 mmol/L of the span from the lowest to the highest of the standard and the actual base excess (BASE_EXCESS_TOLERANCE_MMOL_L), the actual one over the stated Hb or, with none, over Hb 7–17 g/dL: common practice, no source; reasoning given beside the constants.',
   'pneumark-consistency-tolerance':
@@ -788,7 +788,8 @@ export function venousPco2Screen(pvco2Mmhg: number, resolutionMmhg = 0): VenousP
 
 /**
  * Base excess: the standard base excess of the extracellular fluid (SBE) and the actual base excess
- * of blood (ABE), both by the Van Slyke equation as standardised (`van-slyke-sbe`, from memory).
+ * of blood (ABE), both by the Van Slyke equation as standardised (`van-slyke-sbe`: the constants from
+ * memory; the general form, and another standardisation the ABE is held against, read in December 2026).
  *
  * Hb units: the ABE form is pinned with Hb in g/dL. Some texts print it with ctHb in mmol/L (of
  * the monomer; 1 g/dL ≈ 0.6206 mmol/L). The g/dL reading is the one that agrees with the SBE form:

@@ -11,15 +11,15 @@ import { PA_PER_ATMOSPHERE, PA_PER_MMHG } from './units';
 /** Citations for the formulas in this module (key → citation). */
 export const SOURCES = Object.freeze({
   'west-1996':
-    'West JB. Prediction of barometric pressures at high altitudes with the use of model atmospheres. J Appl Physiol 1996;81(4):1850–1854 (from memory).',
+    'West JB. Prediction of barometric pressures at high altitudes with the use of model atmospheres. J Appl Physiol 1996;81(4):1850–1854 (the paper and its equation from memory): the pressures its equation gives lie within 1.3 % (4.3 mmHg) of the four mean pressures measured on Mount Everest that the abstract of West et al. 1983 gives (read December 2026).',
   'west-1983':
-    'West JB, Lahiri S, Maret KH, Peters RM Jr, Pizzo CJ. Barometric pressures at extreme altitudes on Mt. Everest: physiological significance. J Appl Physiol 1983;54(5):1188–1194: mean pressures 400.4 Torr at 5,400 m and 253.0 Torr on the summit, 8,848 m (read in its abstract, in a copy of the article).',
+    'West JB, Lahiri S, Maret KH, Peters RM Jr, Pizzo CJ. Barometric pressures at extreme altitudes on Mt. Everest: physiological significance. J Appl Physiol 1983;54(5):1188–1194: mean pressures 400.4 Torr at 5,400 m, 351.0 at 6,300 m, 283.6 at 8,050 m and 253.0 Torr on the summit, 8,848 m, all considerably higher than the ICAO Standard Atmosphere predicts (read in its abstract, in a copy of the article).',
   'us-standard-atmosphere-1976':
     'NOAA, NASA, US Air Force. U.S. Standard Atmosphere, 1976 (NOAA-S/T 76-1562). Washington DC: US Government Printing Office, 1976; its troposphere layer is the same as the ICAO Standard Atmosphere (ICAO Doc 7488) (the document not read here, its citation from memory): its constants read in its reproduction in the table of crnslab.org/util/atmo.php (sea-level pressure 101325 Pa and temperature 288.15 K, lapse rate 6.5 K/km, g0 9.80665 m/s², molecular weight of air 28.9644 kg/kmol, R* 8.31432 J/(K·mol), Earth radius 6356766 m, 22632 Pa at the tropopause, 11 km) and in the layer table at av8n.com/physics/altimetry.htm (22632.1 Pa at 11,000 m).',
   'buck-1981':
     'Buck AL. New equations for computing vapor pressure and enhancement factor. J Appl Meteorol 1981;20(12):1527–1532 (the paper not read here): its equation 3 over liquid water, 6.1121 exp(17.502 T/(240.97 + T)) hPa, the form used here, read in its reproduction in the R package HeatStress (rdrr.io/github/anacv/HeatStress, esat.R, which names it Buck 1981 equation 3, written with T + 240.97 as Tk − 32.18). Its later form over liquid water, 6.1121 exp((18.678 − T/234.5) × T/(257.14 + T)) hPa, read in the Wikipedia article "Arden Buck equation" (en.wikipedia.org/wiki/Arden_Buck_equation), gives the same pressure within 0.05 % from 0 to 42 °C.',
   'inspired-po2':
-    'Inspired PO2 = FiO2 × (PB − PH2O), water vapour 47 mmHg at 37 °C: standard respiratory physiology, e.g. West JB. Respiratory Physiology: The Essentials (from memory); common practice.',
+    'Inspired PO2 = FiO2 × (PB − PH2O), water vapour 47 mmHg at 37 °C: standard respiratory physiology, e.g. West JB. Respiratory Physiology: The Essentials (from memory); common practice. The water vapour pressure at body temperature, 47 mmHg (6.25 kPa), read among the sample values for air at sea level at 37 °C of the English Wikipedia article Alveolar gas equation (its copy at primidi.com), with a barometric pressure of 760 mmHg.',
 } as const);
 
 /** Altitudes (m) for which West's model atmosphere is evaluated; outside → `null`. */
