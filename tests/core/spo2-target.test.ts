@@ -177,6 +177,23 @@ describe('hypercapnia under an ordinary target (PN329)', () => {
     expect(findings(`@ day 1 09:00\noxygen mask 5 L/min, target 94-98\n${gas}`, 'PN329', { hypercapniaAboveMmhg: 65 })).toEqual([]);
   });
 
+  it('reads a PaCO2 in kPa at the resolution it was written with, as the ventilation reading (PN411) does', () => {
+    // 6.7 kPa (50.25 mmHg) stands for 6.65–6.75 kPa, which holds 50 mmHg: on the threshold, not above
+    // it, so neither PN411 nor PN329 speaks (the threshold: the hypercapniaAboveMmhg setting, 50 mmHg
+    // by default; 1 kPa = 7.50062 mmHg, from memory).
+    const onIt = checkNote('@ day 1 09:00\noxygen mask 5 L/min, target 92-96\nabg 7.30/6.7/9.0 kPa').findings.map((f) => f.code);
+    expect(onIt).not.toContain('PN411');
+    expect(onIt).not.toContain('PN329');
+    // 6.70 kPa is written to the hundredth (6.695–6.705 kPa, 50.22–50.29 mmHg): above 50 mmHg, for both.
+    const above = checkNote('@ day 1 09:00\noxygen mask 5 L/min, target 92-96\nabg 7.30/6.70/9.0 kPa').findings;
+    expect(above.map((f) => f.code)).toContain('PN411');
+    const f = above.filter((x) => x.code === 'PN329');
+    expect(f).toHaveLength(1);
+    // Each number on its side of the threshold, as PN411 writes them, never "50 mmHg is above 50 mmHg".
+    expect(f[0]!.message).toMatch(/^PaCO2 6\.70 kPa \(50\.3 mmHg\) is above 6\.67 kPa under the target 92–96 % written at this timepoint: /);
+    expect(findings('@ day 1 09:00\noxygen mask 5 L/min, target 92-96\nabg 7.30/6.8/9.0 kPa', 'PN329')[0]!.message).toMatch(/^PaCO2 6\.8 kPa \(51 mmHg\) is above 6\.7 kPa under /);
+  });
+
   it('takes the setting\'s target where the note writes none', () => {
     expect(findings(`@ day 1 09:00\noxygen mask 5 L/min\n${gas}`, 'PN329', { spo2Target: '94-98' })).toHaveLength(1);
     expect(findings(`@ day 1 09:00\noxygen mask 5 L/min\n${gas}`, 'PN329', { spo2Target: '88-92' })).toEqual([]);
