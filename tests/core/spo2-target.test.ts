@@ -156,6 +156,20 @@ describe('SpO2 below the target (PN328)', () => {
   });
 });
 
+describe('an SpO2 written with decimals (PN327, PN328)', () => {
+  it('is quoted as written, never rounded onto the end of the target it is reported outside', () => {
+    // 92.4 % is above a target of 88–92 % and 87.5 % below it (BTS 2017, from memory): the messages
+    // say 92.4 and 87.5, not "92 % is above the target 88–92 %" nor "88 % is below" it.
+    const above = findings('@ 08:00\noxygen cannula 2 L/min, target 88-92\nvitals spo2 92.4', 'PN327');
+    expect(above).toHaveLength(1);
+    expect(above[0]!.message).toBe('SpO2 92.4 % on oxygen (cannula) is above the target 88–92 % written at this timepoint.');
+    const below = findings('@ 08:00\noxygen cannula 2 L/min, target 88-92\nvitals spo2 87.5', 'PN328');
+    expect(below).toHaveLength(1);
+    expect(below[0]!.message).toBe('SpO2 87.5 % on oxygen (cannula) is below the target 88–92 % written at this timepoint.');
+    expect(findings('@ 08:00\noxygen cannula 2 L/min, target 88-92\nvitals spo2 97', 'PN327')[0]!.message).toMatch(/^SpO2 97 % on oxygen/);
+  });
+});
+
 describe('hypercapnia under an ordinary target (PN329)', () => {
   const gas = 'abg 7.31/62/68/30';
 

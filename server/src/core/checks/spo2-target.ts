@@ -12,7 +12,7 @@ import { GAS_KPA, GAS_MMHG } from '../derive/gas-words';
 import { carriedFromText, deviceShown, kpaResolutionMmhg, showsKpa, timeText } from '../present';
 import { toRange } from '../syntax/tree';
 import type { Range } from '../types';
-import { formatNumber } from '../util/format';
+import { formatAgainst, writtenDecimals } from '../util/format';
 import { defineCheck, type TimepointContext } from './check';
 
 /** The published source of the targets (BTS 2017), read from memory. */
@@ -55,6 +55,14 @@ function spo2AndTarget(ctx: TimepointContext): { spo2: InputValue; value: number
   return spo2 === undefined || spo2.origin.kind !== 'here' ? null : { spo2, value, target };
 }
 
+/**
+ * The SpO2 as written (`92.4`, not `92`), with more decimals only where fewer would put it on an end
+ * of the target: never "SpO2 92 % is above the target 88–92 %".
+ */
+function spo2Shown(found: { spo2: InputValue; value: number; target: Spo2Target }): string {
+  return formatAgainst(found.value, writtenDecimals(found.spo2.stated.item.value?.text ?? ''), found.target.lowPct, found.target.highPct);
+}
+
 export const spo2AboveTarget = defineCheck({
   code: 'PN327',
   alias: 'spo2-above-target',
@@ -74,7 +82,7 @@ export const spo2AboveTarget = defineCheck({
     if (air === null || !air.onOxygen) return;
     ctx.report({
       range: toRange(found.spo2.stated.line, found.spo2.stated.item.span),
-      message: `SpO2 ${formatNumber(found.value, 0)} % on oxygen (${deviceShown(air.how)}) is above ${targetPhrase(ctx, found.target)}.`,
+      message: `SpO2 ${spo2Shown(found)} % on oxygen (${deviceShown(air.how)}) is above ${targetPhrase(ctx, found.target)}.`,
       ...relatedTarget(found.target),
     });
   },
@@ -99,7 +107,7 @@ export const spo2BelowTarget = defineCheck({
     const on = air === null ? ' (neither oxygen nor room air written)' : air.onOxygen ? ` on oxygen (${deviceShown(air.how)})` : ' on room air';
     ctx.report({
       range: toRange(found.spo2.stated.line, found.spo2.stated.item.span),
-      message: `SpO2 ${formatNumber(found.value, 0)} %${on} is below ${targetPhrase(ctx, found.target)}.`,
+      message: `SpO2 ${spo2Shown(found)} %${on} is below ${targetPhrase(ctx, found.target)}.`,
       ...relatedTarget(found.target),
     });
   },
