@@ -337,6 +337,9 @@ const SPEC_LINES: Readonly<Record<string, readonly string[] | { readonly on: str
   '@ +2h.': ['PN105'],
   '@ 08:00 arrived.': [],
   '@ 08:00, arrival': [],
+  // The canonical layout's own examples, as the formatter writes them.
+  'vitals    hr 80, rr 18': [],
+  '@ day 1 07:40  arrival': [],
   'abg 7.28/56/71/26, be -2': [],
   'vent mode HFOV, rate 5 Hz, mpaw 25, amplitude 60, fio2 0.6': [],
   'oxygen niv ipap 18, epap 6': [],

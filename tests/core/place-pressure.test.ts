@@ -28,6 +28,17 @@ describe('barometric pressure unlike the altitude on its place line (PN320)', ()
     expect(f[0]!.related?.[0]?.range.start).toEqual({ line: 0, character: 6 });
   });
 
+  it('gives one pressure, not a range with equal ends, where the two models agree at the decimals shown', () => {
+    // At sea level both models give 760 mmHg (101.3 kPa), and at 100 m both about 751 mmHg (West 1996;
+    // U.S. Standard Atmosphere 1976, both from memory): never "760–760 mmHg".
+    const sea = found('place altitude 0 m, barometric 700 mmHg\n@ 08:00\nvitals hr 80');
+    expect(sea).toHaveLength(1);
+    expect(sea[0]!.message).toContain('where about 760 mmHg is expected');
+    expect(found('place altitude 0 m, barometric 93 kPa\n@ 08:00\nvitals hr 80')[0]!.message).toContain('where about 101.3 kPa (760 mmHg) is expected');
+    expect(found('place altitude 100 m, barometric 700\n@ 08:00\nvitals hr 80')[0]!.message).toContain('where about 751 mmHg is expected');
+    for (const f of [...sea, ...found('place altitude 0 m, barometric 93 kPa')]) expect(f.message).not.toMatch(/(\d+(?:\.\d+)?)–\1 /);
+  });
+
   it('names an altitude in feet and a pressure in kPa as written, with mmHg beside the kPa', () => {
     // 12,000 ft = 3,658 m: about 485–496 mmHg; 80 kPa is 600 mmHg.
     const f = found('@ 08:00\nplace altitude 12000 ft, barometric 80 kPa\nvitals hr 80');

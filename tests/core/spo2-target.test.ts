@@ -108,10 +108,13 @@ describe('a target with a decimal end (PN302)', () => {
     expect(r.findings.filter((x) => x.code === 'PN328').map((x) => x.message)).toEqual(['SpO2 88 % on oxygen (cannula) is below the target 88.5–92 % written at this timepoint.']);
   });
 
-  it('shows an SpO2 with the decimals that keep it on its side of an end (92.4 is not 92 above 88–92 %)', () => {
+  it('quotes an SpO2 with the decimals the note wrote, never rounded onto an end (92.4 is not 92 above 88–92 %)', () => {
     expect(findings('@ day 1 09:00\noxygen cannula 2, target 88-92\nvitals spo2 92.4', 'PN327').map((x) => x.message))
       .toEqual(['SpO2 92.4 % on oxygen (cannula) is above the target 88–92 % written at this timepoint.']);
     expect(findings('@ day 1 09:00\noxygen cannula 2, target 88.5-92\nvitals spo2 88.4', 'PN328').map((x) => x.message))
+      .toEqual(['SpO2 88.4 % on oxygen (cannula) is below the target 88.5–92 % written at this timepoint.']);
+    // A whole SpO2 stays whole where that keeps its side: 88 beside 88.5–92 %.
+    expect(findings('@ day 1 09:00\noxygen cannula 2, target 88.5-92\nvitals spo2 88', 'PN328').map((x) => x.message))
       .toEqual(['SpO2 88 % on oxygen (cannula) is below the target 88.5–92 % written at this timepoint.']);
   });
 
@@ -250,6 +253,20 @@ describe('SpO2 below the target (PN328)', () => {
   });
 });
 
+describe('an SpO2 written with decimals (PN327, PN328)', () => {
+  it('is quoted as written, never rounded onto the end of the target it is reported outside', () => {
+    // 92.4 % is above a target of 88–92 % and 87.5 % below it (BTS 2017, from memory): the messages
+    // say 92.4 and 87.5, not "92 % is above the target 88–92 %" nor "88 % is below" it.
+    const above = findings('@ 08:00\noxygen cannula 2 L/min, target 88-92\nvitals spo2 92.4', 'PN327');
+    expect(above).toHaveLength(1);
+    expect(above[0]!.message).toBe('SpO2 92.4 % on oxygen (cannula) is above the target 88–92 % written at this timepoint.');
+    const below = findings('@ 08:00\noxygen cannula 2 L/min, target 88-92\nvitals spo2 87.5', 'PN328');
+    expect(below).toHaveLength(1);
+    expect(below[0]!.message).toBe('SpO2 87.5 % on oxygen (cannula) is below the target 88–92 % written at this timepoint.');
+    expect(findings('@ 08:00\noxygen cannula 2 L/min, target 88-92\nvitals spo2 97', 'PN327')[0]!.message).toMatch(/^SpO2 97 % on oxygen/);
+  });
+});
+
 describe('hypercapnia under an ordinary target (PN329)', () => {
   const gas = 'abg 7.31/62/68/30';
 
@@ -269,6 +286,23 @@ describe('hypercapnia under an ordinary target (PN329)', () => {
     expect(findings('@ day 1 09:00\noxygen mask 5 L/min, target 94-98\nabg 7.40/45/80/26', 'PN329')).toEqual([]);
     // The threshold is the hypercapniaAboveMmhg setting's.
     expect(findings(`@ day 1 09:00\noxygen mask 5 L/min, target 94-98\n${gas}`, 'PN329', { hypercapniaAboveMmhg: 65 })).toEqual([]);
+  });
+
+  it('reads a PaCO2 in kPa at the resolution it was written with, as the ventilation reading (PN411) does', () => {
+    // 6.7 kPa (50.25 mmHg) stands for 6.65–6.75 kPa, which holds 50 mmHg: on the threshold, not above
+    // it, so neither PN411 nor PN329 speaks (the threshold: the hypercapniaAboveMmhg setting, 50 mmHg
+    // by default; 1 kPa = 7.50062 mmHg, from memory).
+    const onIt = checkNote('@ day 1 09:00\noxygen mask 5 L/min, target 92-96\nabg 7.30/6.7/9.0 kPa').findings.map((f) => f.code);
+    expect(onIt).not.toContain('PN411');
+    expect(onIt).not.toContain('PN329');
+    // 6.70 kPa is written to the hundredth (6.695–6.705 kPa, 50.22–50.29 mmHg): above 50 mmHg, for both.
+    const above = checkNote('@ day 1 09:00\noxygen mask 5 L/min, target 92-96\nabg 7.30/6.70/9.0 kPa').findings;
+    expect(above.map((f) => f.code)).toContain('PN411');
+    const f = above.filter((x) => x.code === 'PN329');
+    expect(f).toHaveLength(1);
+    // Each number on its side of the threshold, as PN411 writes them, never "50 mmHg is above 50 mmHg".
+    expect(f[0]!.message).toMatch(/^PaCO2 6\.70 kPa \(50\.3 mmHg\) is above 6\.67 kPa under the target 92–96 % written at this timepoint: /);
+    expect(findings('@ day 1 09:00\noxygen mask 5 L/min, target 92-96\nabg 7.30/6.8/9.0 kPa', 'PN329')[0]!.message).toMatch(/^PaCO2 6\.8 kPa \(51 mmHg\) is above 6\.7 kPa under /);
   });
 
   it('takes the setting\'s target where the note writes none', () => {

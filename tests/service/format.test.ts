@@ -259,3 +259,19 @@ describe('formatter properties', () => {
     }), { numRuns: FORMAT_RUNS });
   });
 });
+
+describe('the canonical layout as grammar/README.md describes it ("The canonical layout")', () => {
+  it('lays out the lines the spec quotes, leaves a line with a parser finding as it is, and lays out one with an unknown key', () => {
+    const text = 'vitals hr 80 rr 18\n@ day 1 07:40 arrival\n@ 08:00 , arrival\nvitals spo2 89%\nabg 7,4/40/90/24\nvitals hr 80.\nvitals hrr 80   mmhgg\n';
+    expect(formatNote(text).split('\n')).toEqual([
+      'vitals    hr 80, rr 18', // items from column 11, joined by `, `
+      '@ day 1 07:40  arrival', // two spaces before the label
+      '@ 08:00, arrival', // a comma after the time kept, glued to it
+      'vitals    spo2 89 %', // a known unit glued to its number written apart
+      'abg 7,4/40/90/24', // a decimal comma (PN103): left as it is
+      'vitals hr 80.', // a full stop that ends the items (PN105): left as it is
+      'vitals    hrr 80 mmhgg', // an unknown key and an unknown unit (PN201, PN202) are laid out
+      '',
+    ]);
+  });
+});

@@ -346,7 +346,7 @@ function otherUnitIssue(item: ItemNode, field: FieldDef, line: number, readUnit:
     check: 'other-unit-likely',
     line,
     span: value.span,
-    message: `${field.label} ${value.text} was read in ${readUnit.id}, where it is implausible; in ${likely.id} it would be ordinary. Add the unit (or convert); it is not used in calculations until then.`,
+    message: `${field.label} ${value.text} was read in ${unitInSentence(readUnit.id)}, where it is implausible; in ${unitInSentence(likely.id)} it would be ordinary. Add the unit (or convert); it is not used in calculations until then.`,
     fixes,
   };
 }
@@ -839,6 +839,14 @@ function asFio2(item: ItemNode, candidates: readonly UnitDef[], written: number 
 }
 
 /** How a unit id is written in a note (`fraction` and `%sat` are internal ids). */
+/**
+ * A unit as a sentence names it after "in": its display form, but `inches` for `in`, which a
+ * sentence would otherwise read as the word (never "in in it would be ordinary").
+ */
+export function unitInSentence(id: string): string {
+  return id === 'in' ? 'inches' : displayUnit(id);
+}
+
 export function displayUnit(id: string): string {
   if (id === 'fraction') return 'fraction';
   if (id === '%sat') return '%';

@@ -49,11 +49,12 @@ export function targetText(target: Spo2Target): string {
 }
 
 /**
- * An SpO2 as a message beside a target shows it: a whole percent, or more decimals where rounding
- * would put it on the other side of an end (88.6 beside 88.5–92 % is 88.6, not 89).
+ * An SpO2 as a message beside a target shows it: with the decimals it was written with (`decimals`,
+ * 92.4 as 92.4), or more where fewer would put it on an end or the other side of one (88.6 beside
+ * 88.5–92 % is 88.6, not 89; never "SpO2 92 % is above the target 88–92 %").
  */
-export function spo2AgainstText(spo2Pct: number, target: Spo2Target): string {
-  return formatAgainst(spo2Pct, 0, target.lowPct, target.highPct);
+export function spo2AgainstText(spo2Pct: number, target: Spo2Target, decimals = 0): string {
+  return formatAgainst(spo2Pct, decimals, target.lowPct, target.highPct);
 }
 
 /** Where an SpO2 stands against a target: below its lower end, within it (ends included), above its upper end. */

@@ -57,9 +57,9 @@ function compare(ctx: CheckContext, pressure: StatedValue, stated: readonly Stat
   const pbShown = inKpa
     ? `${formatNumber(kpaFromMmhg(pb), KPA_DECIMALS)} kPa (${formatNumber(pb, 0)} mmHg)`
     : `${formatNumber(pb, 0)} mmHg`;
-  const rangeMmhg = `${formatNumber(low, 0)}–${formatNumber(high, 0)} mmHg`;
+  const rangeMmhg = `${span(formatNumber(low, 0), formatNumber(high, 0))} mmHg`;
   const rangeShown = inKpa
-    ? `${formatNumber(kpaFromMmhg(low), KPA_DECIMALS)}–${formatNumber(kpaFromMmhg(high), KPA_DECIMALS)} kPa (${rangeMmhg})`
+    ? `${span(formatNumber(kpaFromMmhg(low), KPA_DECIMALS), formatNumber(kpaFromMmhg(high), KPA_DECIMALS))} kPa (${rangeMmhg})`
     : rangeMmhg;
   const altitudeNumber = altitude.item.value;
   const altitudeShown = `${altitudeNumber && altitudeNumber.kind === 'number' ? altitudeNumber.text : formatAgainst(altitude.value!, 0, NaN)} ${displayUnit(altitude.readUnit ?? 'm')}`;
@@ -68,4 +68,12 @@ function compare(ctx: CheckContext, pressure: StatedValue, stated: readonly Stat
     message: `Barometric pressure ${pbShown} is unlike altitude ${altitudeShown} on the same line, where about ${rangeShown} is expected (by the U.S. Standard Atmosphere and West's model; weather moves it by a few percent). The pressure is used and the altitude is not: check both.`,
     related: [{ range: toRange(altitude.line, altitude.item.span), message: 'the altitude on this line' }],
   });
+}
+
+/**
+ * The pressures the two model atmospheres give, as shown: one number where they agree at the
+ * decimals shown (at sea level both give 760 mmHg), never a range with equal ends (`760–760`).
+ */
+function span(low: string, high: string): string {
+  return low === high ? low : `${low}–${high}`;
 }

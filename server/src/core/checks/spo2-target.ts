@@ -7,9 +7,12 @@
  */
 import type { InputValue } from '../analysis/model';
 import { breathing, spo2AgainstText, standing, targetInForce, targetText, type Spo2Target } from '../analysis/spo2-target';
-import { carriedFromText, deviceShown, gasPressureText, showsKpa, statedGasText, timeText } from '../present';
+import { sideOf } from '../physiology/numeric';
+import { GAS_KPA, GAS_MMHG } from '../derive/gas-words';
+import { carriedFromText, deviceShown, kpaResolutionMmhg, showsKpa, timeText } from '../present';
 import { toRange } from '../syntax/tree';
 import type { Range } from '../types';
+import { writtenDecimals } from '../util/format';
 import { defineCheck, type TimepointContext } from './check';
 
 /** The published source of the targets (BTS 2017), read in December 2026 (session 31): see tests/physiology/sources-read.test.ts. */
@@ -52,6 +55,14 @@ function spo2AndTarget(ctx: TimepointContext): { spo2: InputValue; value: number
   return spo2 === undefined || spo2.origin.kind !== 'here' ? null : { spo2, value, target };
 }
 
+/**
+ * The SpO2 as written (`92.4`, not `92`), with more decimals only where fewer would put it on an end
+ * of the target: never "SpO2 92 % is above the target 88–92 %".
+ */
+function spo2Shown(found: { spo2: InputValue; value: number; target: Spo2Target }): string {
+  return spo2AgainstText(found.value, found.target, writtenDecimals(found.spo2.stated.item.value?.text ?? ''));
+}
+
 export const spo2AboveTarget = defineCheck({
   code: 'PN327',
   alias: 'spo2-above-target',
@@ -71,7 +82,7 @@ export const spo2AboveTarget = defineCheck({
     if (air === null || !air.onOxygen) return;
     ctx.report({
       range: toRange(found.spo2.stated.line, found.spo2.stated.item.span),
-      message: `SpO2 ${spo2AgainstText(found.value, found.target)} % on oxygen (${deviceShown(air.how)}) is above ${targetPhrase(ctx, found.target)}.`,
+      message: `SpO2 ${spo2Shown(found)} % on oxygen (${deviceShown(air.how)}) is above ${targetPhrase(ctx, found.target)}.`,
       ...relatedTarget(found.target),
     });
   },
@@ -96,7 +107,7 @@ export const spo2BelowTarget = defineCheck({
     const on = air === null ? ' (neither oxygen nor room air written)' : air.onOxygen ? ` on oxygen (${deviceShown(air.how)})` : ' on room air';
     ctx.report({
       range: toRange(found.spo2.stated.line, found.spo2.stated.item.span),
-      message: `SpO2 ${spo2AgainstText(found.value, found.target)} %${on} is below ${targetPhrase(ctx, found.target)}.`,
+      message: `SpO2 ${spo2Shown(found)} %${on} is below ${targetPhrase(ctx, found.target)}.`,
       ...relatedTarget(found.target),
     });
   },
@@ -109,7 +120,7 @@ export const targetBesideHypercapnia = defineCheck({
   severity: 'information',
   tags: ['interpretation', 'physiology'],
   doc: {
-    fires: `An arterial gas shows hypercapnia (a PaCO2 above the \`hypercapniaAboveMmhg\` setting, 50 mmHg by default) while the SpO2 target in force has a lower end of ${ORDINARY_TARGET_FROM_PCT} % or more (94–98 %, 92–96 %): consistent with hypercapnic respiratory failure, for which BTS 2017 suggests a target of 88–92 %. Only where a target is in force (written in the note, or given by the \`spo2Target\` setting): with none, nothing is said. The finding points to where the target was written.`,
+    fires: `An arterial gas shows hypercapnia (a PaCO2 above the \`hypercapniaAboveMmhg\` setting, 50 mmHg by default; one written in kPa is read at the resolution it was written with, as PN411 reads it, so 6.7 kPa is on the 50 mmHg threshold and not above it) while the SpO2 target in force has a lower end of ${ORDINARY_TARGET_FROM_PCT} % or more (94–98 %, 92–96 %): consistent with hypercapnic respiratory failure, for which BTS 2017 suggests a target of 88–92 %. Only where a target is in force (written in the note, or given by the \`spo2Target\` setting): with none, nothing is said. The finding points to where the target was written.`,
     example: 'oxygen mask 5 L/min, target 94-98\nabg 7.31/62/68/30',
     fix: 'Review the target under local protocol; where 88–92 % is meant, write it (`target 88-92`).',
   },
@@ -120,12 +131,19 @@ export const targetBesideHypercapnia = defineCheck({
     if (paco2Mmhg === null || !(paco2Mmhg > ctx.settings.hypercapniaAboveMmhg)) return;
     const paco2 = values.get('paco2');
     if (paco2 === undefined || paco2.origin.kind !== 'here') return;
+    // A PaCO2 written in kPa is compared at the resolution it was written with, as the ventilation
+    // reading (PN411) compares it: 6.7 kPa is on the 50 mmHg threshold, not above it.
+    const resolution = kpaResolutionMmhg(paco2.stated);
+    if (sideOf(paco2Mmhg, ctx.settings.hypercapniaAboveMmhg, resolution) <= 0) return;
     const target = targetInForce(values, ctx.settings);
     if (target === null || target.lowPct < ORDINARY_TARGET_FROM_PCT) return;
-    const kpa = showsKpa(ctx.timepoint);
+    // Written as the ventilation reading writes them: each number on its side of the threshold
+    // (6.70 kPa is 50.3 mmHg, above 6.67 kPa), not both shown as 50 mmHg.
+    const gas = showsKpa(ctx.timepoint) ? GAS_KPA : GAS_MMHG;
+    const at = ctx.settings.hypercapniaAboveMmhg;
     ctx.report({
       range: toRange(paco2.stated.line, paco2.stated.item.span),
-      message: `PaCO2 ${statedGasText(paco2.stated, kpa)} is above ${gasPressureText(ctx.settings.hypercapniaAboveMmhg, 0, kpa)} under ${targetPhrase(ctx, target)}: consistent with hypercapnic respiratory failure; BTS 2017 suggests a target of 88–92 % for patients at risk of it — review the target under local protocol.`,
+      message: `PaCO2 ${gas.measured(paco2Mmhg, resolution, at)} is above ${gas.threshold(at, paco2Mmhg)} under ${targetPhrase(ctx, target)}: consistent with hypercapnic respiratory failure; BTS 2017 suggests a target of 88–92 % for patients at risk of it — review the target under local protocol.`,
       ...relatedTarget(target),
     });
   },

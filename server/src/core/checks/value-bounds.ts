@@ -7,7 +7,7 @@ import { childUsualBounds, isChildAge, softBoundsAt, unitsWithin, within, within
 import type { StatedValue } from '../analysis/model';
 import { PER_KG_PBW } from '../analysis/per-kg-volume';
 import type { Bounds, FieldDef } from '../fields/registry';
-import { displayUnit, isReversedRange, isSaturationFraction } from '../analysis/read-value';
+import { displayUnit, isReversedRange, isSaturationFraction, unitInSentence } from '../analysis/read-value';
 import { decimalsFor, readUnitName, writtenDecimals } from '../present';
 import { convert, unitById, type UnitDef } from '../fields/units';
 import { toRange } from '../syntax/tree';
@@ -234,7 +234,7 @@ export const impossibleValue = defineCheck({
     const fix = otherUnitFix(field, stated, usualBounds(field, barometricMmhg, at));
     ctx.report({
       range: toRange(stated.line, stated.item.value?.span ?? stated.item.span),
-      message: `${asWritten(field, stated)} is impossible (expected ${describe(field.hard, field, stated)}); it is not used in calculations.${fix ? ` In ${fix.unit} it would be ordinary.` : ''}`,
+      message: `${asWritten(field, stated)} is impossible (expected ${describe(field.hard, field, stated)}); it is not used in calculations.${fix ? ` In ${unitInSentence(fix.unit)} it would be ordinary.` : ''}`,
       ...(fix ? { fixes: [fix.fix] } : {}),
     });
   }),

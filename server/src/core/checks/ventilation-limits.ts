@@ -1,7 +1,7 @@
 /** Ventilator settings beyond the usual lung-protective limits. */
 import { DRIVING_PRESSURE_FLAG_CMH2O, LUNG_PROTECTIVE_VT_MAX_ML_PER_KG, PLATEAU_LIMIT_CMH2O, SOURCES } from '../physiology';
 import { toRange } from '../syntax/tree';
-import { formatAgainst } from '../util/format';
+import { formatAgainst, writtenDecimals } from '../util/format';
 import { derivedValueOf } from '../derive/registry';
 import { defineCheck, type TimepointContext } from './check';
 import { inHfov } from './oscillation';
@@ -56,7 +56,7 @@ export const plateauHigh = defineCheck({
     if (ctx.timepoint.values.originOf('plateau') !== 'here' || inHfov(ctx)) return;
     const plat = ctx.timepoint.values.get('plateau');
     if (!plat || plat.origin.kind !== 'here' || !plat.stated.usable || plat.stated.value === null || plat.stated.value <= PLATEAU_LIMIT_CMH2O) return;
-    ctx.report({ range: toRange(plat.stated.line, plat.stated.item.span), message: `Plateau pressure ${formatAgainst(plat.stated.value, 0, PLATEAU_LIMIT_CMH2O)} cmH2O is above ${PLATEAU_LIMIT_CMH2O} cmH2O.` });
+    ctx.report({ range: toRange(plat.stated.line, plat.stated.item.span), message: `Plateau pressure ${formatAgainst(plat.stated.value, writtenDecimals(plat.stated.item.value?.text ?? ''), PLATEAU_LIMIT_CMH2O)} cmH2O is above ${PLATEAU_LIMIT_CMH2O} cmH2O.` });
   },
 });
 

@@ -8,6 +8,7 @@ import {
   classifyAcidBase,
   deltaRatio,
   expectedHco3Respiratory,
+  RESPIRATORY_HCO3_COEFFICIENTS_PER_10_MMHG,
   expectedPaco2MetabolicAcidosis,
   expectedPaco2MetabolicAlkalosis,
   hco3FromPhPco2,
@@ -210,6 +211,20 @@ export const paco2Expected = defineDerived({
   },
 });
 
+/**
+ * The formula of one expected HCO3 with the coefficient its PaCO2 takes (up per 10 mmHg above
+ * 40, down per 10 mmHg below it: `expectedHco3Respiratory`), so that the formula with the numbers
+ * put in holds numbers only (`24 + 1 × (49 − 40) ÷ 10 ± 2`), not both branches of the template.
+ */
+function respiratoryFormula(k: readonly [number, number]): string {
+  const coefficient = k[0] === k[1] ? `${k[0]}` : `(${k[0]}…${k[1]})`;
+  return `24 + ${coefficient} × ({PaCO2} − 40) ÷ 10 ± 2`;
+}
+const RESPIRATORY_FORMULAS = {
+  acute: { above: respiratoryFormula(RESPIRATORY_HCO3_COEFFICIENTS_PER_10_MMHG.acuteAcidosis), below: respiratoryFormula(RESPIRATORY_HCO3_COEFFICIENTS_PER_10_MMHG.acuteAlkalosis) },
+  chronic: { above: respiratoryFormula(RESPIRATORY_HCO3_COEFFICIENTS_PER_10_MMHG.chronicAcidosis), below: respiratoryFormula(RESPIRATORY_HCO3_COEFFICIENTS_PER_10_MMHG.chronicAlkalosis) },
+} as const;
+
 function respiratoryExpected(chronicity: 'acute' | 'chronic') {
   return defineDerived({
     id: `hco3_expected_${chronicity}`,
@@ -220,7 +235,9 @@ function respiratoryExpected(chronicity: 'acute' | 'chronic') {
     category: 'acid-base',
     // HCO3 moves with PaCO2 (up above 40 mmHg, down below it), so each coefficient is positive: a
     // `−2` for alkalosis would turn 24 + (−2) × (27 − 40) ÷ 10 into 26.6, where HCO3 falls to 21.4.
-    formula: chronicity === 'acute' ? '24 + (1 acidosis | 2 alkalosis) × ({PaCO2} − 40) ÷ 10 ± 2' : '24 + (3.5…5 acidosis | 4…5 alkalosis) × ({PaCO2} − 40) ÷ 10 ± 2',
+    // The formula of a PaCO2 above 40 mmHg (a respiratory acidosis), and that of one below it.
+    formula: RESPIRATORY_FORMULAS[chronicity].above,
+    otherFormulas: [RESPIRATORY_FORMULAS[chronicity].below],
     source: `${SOURCES['narins-emmett-1980']} ${SOURCES['adrogue-madias-2010']}`,
     anchors: ['ph', 'paco2'],
     compute(c) {
@@ -232,7 +249,8 @@ function respiratoryExpected(chronicity: 'acute' | 'chronic') {
       if (cls.primary !== 'respiratory-acidosis' && cls.primary !== 'respiratory-alkalosis') return { kind: 'na', reason: 'the primary disorder is not respiratory' };
       // Over the PaCO2s a value written in kPa stands for, as the classification reads it.
       const r = expectedHco3Respiratory(paco2.value, chronicity, c.writtenResolutionMmhg('paco2'));
-      return r ? c.value((r.low + r.high) / 2, [paco2], { range: r, notes: ['span of published coefficients, ± 2 mmol/L'], decimals: rangeDecimals(r, 0, c.field('hco3')?.value) }) : c.value(null, []);
+      const formula = paco2.value >= 40 ? RESPIRATORY_FORMULAS[chronicity].above : RESPIRATORY_FORMULAS[chronicity].below;
+      return r ? c.value((r.low + r.high) / 2, [paco2], { range: r, formula, notes: ['span of published coefficients, ± 2 mmol/L'], decimals: rangeDecimals(r, 0, c.field('hco3')?.value) }) : c.value(null, []);
     },
   });
 }
