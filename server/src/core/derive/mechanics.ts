@@ -244,10 +244,44 @@ export const complianceDynamicDef = defineDerived({
     if (!peak) return { kind: 'na', reason: 'needs a peak pressure' };
     const hfov = c.oscillationBreath();
     if (hfov) return hfov;
+    const own = ownEffort(c);
+    if (own) return own;
     const peep = c.peepLike();
     if (!vt || !peep) return c.missing([vt, c.need('vt')], [peep, c.peepNeed()]);
     return c.value(complianceDynamic(vt.value, peak.value, peep.value), [vt, peak, peep], formulaExtras('{VT} ÷ ({Ppeak} − {PEEP})', peep));
   },
+});
+
+/**
+ * Why the dynamic compliance is not worked out where the breaths in force are the patient's own
+ * (the spontaneous family: `mode PS`, `mode CPAP`, or with no mode NIV or CPAP of the oxygen line,
+ * fields/modes.ts `familyInForce`); null elsewhere. VT ÷ (Ppeak − PEEP) is the respiratory
+ * system's compliance only where the ventilator alone moves the volume: with the patient's own
+ * inspiratory effort the volume is drawn in by muscle pressure that the airway pressure does not
+ * show, so the quotient is higher than the compliance by an unknown amount, and under CPAP, where
+ * the airway pressure barely rises, it has no meaning at all (respiratory mechanics, common
+ * practice, no source). Withheld rather than shown with a caveat: a number named compliance would
+ * go into the exports, the trends and the checks with nothing to say it is not one; the hover and
+ * `show` say why where it would have been, and ask for no tidal volume to get it.
+ */
+function ownEffort(c: DeriveContext): Outcome | null {
+  const mode = c.word('mode');
+  if (mode !== null) {
+    if (modeFamily(mode.word) !== 'spontaneous') return null;
+    return mode.word.toUpperCase() === 'CPAP' ? OWN_EFFORT.cpap : OWN_EFFORT.ps;
+  }
+  const support = c.noninvasiveSupport();
+  return support === null ? null : OWN_EFFORT[support];
+}
+
+const ownEffortBecause = (endExpiratory: string): string =>
+  `the patient's own inspiratory effort draws in part of the volume, which the airway pressure does not show, so VT ÷ (Ppeak − ${endExpiratory}) is higher than the respiratory system's compliance by an unknown amount; a plateau of a passive breath (an inspiratory hold) gives the static compliance`;
+
+/** The reasons of `ownEffort`, one per kind of spontaneous breathing, made once. */
+const OWN_EFFORT: Readonly<Record<'ps' | 'cpap' | 'niv', Outcome>> = Object.freeze({
+  ps: { kind: 'na', reason: `not worked out under pressure support: ${ownEffortBecause('PEEP')}`, explained: true },
+  niv: { kind: 'na', reason: `not worked out under NIV: ${ownEffortBecause('EPAP')}`, explained: true },
+  cpap: { kind: 'na', reason: "not worked out under CPAP: the patient breathes at one set pressure, which barely rises in inspiration, and draws the volume in by their own effort, so VT ÷ (Ppeak − CPAP) is no compliance of the respiratory system", explained: true },
 });
 
 export const airwayResistanceDef = defineDerived({
