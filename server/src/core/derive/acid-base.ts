@@ -15,6 +15,8 @@ import {
   type AcidBaseClassification,
 } from '../physiology';
 import { sideOf } from '../physiology/numeric';
+import { GAS_KPA, GAS_MMHG } from './gas-words';
+import { statedNumber } from '../present';
 import { defineDerived, type DeriveContext, type Outcome, type Term } from './context';
 import { decimalsAgainst, formatNumber } from '../util/format';
 import type { Kept } from '../util/small-store';
@@ -83,6 +85,29 @@ function withheldForInconsistentGas(cls: AcidBaseClassification): Outcome | null
 function rangeDecimals(range: { readonly low: number; readonly high: number }, decimals: number, observed: number | undefined): number {
   if (observed === undefined) return decimals;
   return Math.max(decimalsAgainst(range.low, decimals, observed), decimalsAgainst(range.high, decimals, observed));
+}
+
+/**
+ * The decimals of an expected PaCO2's ends, in mmHg and in kPa, that show the PaCO2 of the gas on
+ * the side of the range the classification puts it (compared at the resolution a PaCO2 in kPa was
+ * written with, `sideOf`), as the acid–base reading writes the range (`GasWords.range`): an end the
+ * PaCO2 is on at that resolution is shown with the PaCO2's own decimals, not pushed apart from it.
+ * Where the PaCO2 was written in kPa, its mmHg in brackets is shown as `statedNumber` gives it
+ * (`2.9 kPa (22 mmHg)`), so the ends in mmHg also keep their side of that number where more
+ * decimals can (`22.2–26.2 mmHg`, not `22–26` beside a PaCO2 of 22 mmHg below the range).
+ */
+function paco2RangeDecimals(c: DeriveContext, r: { readonly low: number; readonly high: number }): { decimals: number; kpaDecimals: number } | { decimals: number } {
+  const paco2 = c.field('paco2')?.value;
+  if (paco2 === undefined) return { decimals: 0 };
+  const resolution = c.writtenResolutionMmhg('paco2');
+  let decimals = GAS_MMHG.rangeDecimals(r.low, r.high, paco2, resolution);
+  const stated = resolution > 0 ? c.input('paco2')?.stated : undefined;
+  const shown = stated ? Number(statedNumber(stated) ?? NaN) : NaN;
+  if (!Number.isNaN(shown)) {
+    if (sideOf(paco2, r.low, resolution) !== 0) decimals = Math.max(decimals, decimalsAgainst(r.low, decimals, shown));
+    if (sideOf(paco2, r.high, resolution) !== 0) decimals = Math.max(decimals, decimalsAgainst(r.high, decimals, shown));
+  }
+  return { decimals, kpaDecimals: GAS_KPA.rangeDecimals(r.low, r.high, paco2, resolution) };
 }
 
 export const hco3Calculated = defineDerived({
@@ -200,11 +225,11 @@ export const paco2Expected = defineDerived({
     if (withheld) return withheld;
     if (cls.primary === 'metabolic-acidosis') {
       const r = expectedPaco2MetabolicAcidosis(hco3.value);
-      return r ? c.value(r.centre, [hco3], { range: r, formula: '1.5 × {HCO3} + 8 ± 2', notes: ["Winters' formula"], decimals: rangeDecimals(r, 0, c.field('paco2')?.value) }) : c.value(null, []);
+      return r ? c.value(r.centre, [hco3], { range: r, formula: '1.5 × {HCO3} + 8 ± 2', notes: ["Winters' formula"], ...paco2RangeDecimals(c, r) }) : c.value(null, []);
     }
     if (cls.primary === 'metabolic-alkalosis') {
       const r = expectedPaco2MetabolicAlkalosis(hco3.value);
-      return r ? c.value(r.centre, [hco3], { range: r, formula: '40 + 0.7 × ({HCO3} − 24) ± 2', decimals: rangeDecimals(r, 0, c.field('paco2')?.value) }) : c.value(null, []);
+      return r ? c.value(r.centre, [hco3], { range: r, formula: '40 + 0.7 × ({HCO3} − 24) ± 2', ...paco2RangeDecimals(c, r) }) : c.value(null, []);
     }
     return { kind: 'na', reason: 'the primary disorder is not metabolic' };
   },
