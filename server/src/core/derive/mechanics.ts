@@ -160,21 +160,49 @@ function namingEndExpiratory(template: string, peep: Term): string | undefined {
   return peep.name === 'PEEP' ? undefined : template.replace('{PEEP}', `{${peep.name}}`);
 }
 
+/** A formula template with the elastic base (`elasticBase`) named as it is made: undefined for the set PEEP (the definition's own template). */
+function namingElasticBase(template: string, base: ElasticBase): string | undefined {
+  return base.named === '{PEEP}' ? undefined : template.replace('{PEEP}', base.named);
+}
+
 function formulaExtras(template: string, peep: Term): ValueExtras | undefined {
   const formula = namingEndExpiratory(template, peep);
   return formula === undefined ? undefined : { formula };
 }
 
 /**
- * The end-expiratory pressure the elastic pressure of a breath is measured from: the total PEEP of an
- * end-expiratory hold where one is written at this timepoint (a reading: the set PEEP plus any
- * intrinsic PEEP), else the PEEP in force (`peepLike`). Plateau − total PEEP is the pressure across
- * the respiratory system at the end of inspiration above that at the end of expiration (common
- * practice, no source; Amato 2015 write plateau − PEEP, and which PEEP they meant is from memory).
+ * The end-expiratory pressure the elastic pressure of a breath is measured from, with the terms it
+ * is made of and how a formula names it (`{PEEPtot}`, `({PEEP} + {PEEPi})`, `{PEEP}`, `{EPAP}`,
+ * `{CPAP}`): the total PEEP of an end-expiratory hold where one is written at this timepoint (a
+ * reading: the set PEEP plus any intrinsic PEEP); else, where an intrinsic PEEP is written at this
+ * timepoint (a reading of the same hold, `autopeep`) and a ventilator's set PEEP is in force, their
+ * sum, which in a passive patient is the total PEEP the hold measured (respiratory mechanics:
+ * total PEEP = set PEEP + intrinsic PEEP; common practice, no source); else the PEEP in force
+ * (`peepLike`). Not the EPAP or CPAP level plus an intrinsic PEEP: an end-expiratory hold is a
+ * ventilator's manoeuvre. Plateau − total PEEP is the pressure across the respiratory system at the
+ * end of inspiration above that at the end of expiration (common practice, no source; Amato 2015
+ * write plateau − PEEP, and which PEEP they meant is from memory).
  */
-function elasticBase(c: DeriveContext): Term | null {
-  return c.field('peep_total', 'PEEPtot') ?? c.peepLike();
+function elasticBase(c: DeriveContext): ElasticBase | null {
+  const total = c.field('peep_total', 'PEEPtot');
+  if (total) return { value: total.value, terms: [total], named: '{PEEPtot}' };
+  const set = c.field('peep', 'PEEP');
+  const intrinsic = set ? c.field('autopeep', 'PEEPi') : null;
+  if (set && intrinsic) return { value: set.value + intrinsic.value, terms: [set, intrinsic], named: SET_PLUS_INTRINSIC };
+  const peep = c.peepLike();
+  return peep ? { value: peep.value, terms: [peep], named: `{${peep.name}}` } : null;
 }
+
+/** An end-expiratory pressure for the elastic pressure of a breath (`elasticBase`). */
+interface ElasticBase {
+  readonly value: number;
+  readonly terms: readonly Term[];
+  /** How a formula names it, in braces: `{PEEP}` or `({PEEP} + {PEEPi})`. */
+  readonly named: string;
+}
+
+/** The total PEEP as the set PEEP plus the intrinsic PEEP of a hold, as a formula names it. */
+const SET_PLUS_INTRINSIC = '({PEEP} + {PEEPi})';
 
 const LUNG_PROTECTIVE_NOTES: readonly string[] = ['lung-protective target 6 mL/kg (4–8) in the ARDS Network protocol'];
 const OSCILLATION_VOLUME_NOTES: readonly string[] = ['in HFOV the volume of one oscillation, not compared with the lung-protective range of conventional breaths'];
@@ -187,7 +215,7 @@ export const drivingPressureDef = defineDerived({
   decimals: 0,
   category: 'mechanics',
   formula: '{Pplat} − {PEEP}',
-  otherFormulas: ['{Pplat} − {PEEPtot}'],
+  otherFormulas: ['{Pplat} − {PEEPtot}', `{Pplat} − ${SET_PLUS_INTRINSIC}`],
   source: SOURCES['amato-2015'],
   anchors: ['plateau'],
   compute(c) {
@@ -200,8 +228,8 @@ export const drivingPressureDef = defineDerived({
     const dp = drivingPressure(plat.value, peep.value);
     // Shown beside the 15 cmH2O flag (PN405): 15.4 as 15.4, not as 15 next to "above 15".
     const decimals = dp === null ? undefined : decimalsAgainst(dp, 0, DRIVING_PRESSURE_FLAG_CMH2O);
-    const formula = namingEndExpiratory('{Pplat} − {PEEP}', peep);
-    return c.value(dp, [plat, peep], formula === undefined ? withDecimals(decimals) : { decimals, formula });
+    const formula = namingElasticBase('{Pplat} − {PEEP}', peep);
+    return c.value(dp, [plat, ...peep.terms], formula === undefined ? withDecimals(decimals) : { decimals, formula });
   },
 });
 
@@ -213,7 +241,7 @@ export const complianceStaticDef = defineDerived({
   decimals: 0,
   category: 'mechanics',
   formula: '{VT} ÷ ({Pplat} − {PEEP})',
-  otherFormulas: ['{VT} ÷ ({Pplat} − {PEEPtot})'],
+  otherFormulas: ['{VT} ÷ ({Pplat} − {PEEPtot})', `{VT} ÷ ({Pplat} − ${SET_PLUS_INTRINSIC})`],
   source: SOURCES['respiratory-mechanics'],
   anchors: ['plateau'],
   compute(c) {
@@ -224,7 +252,8 @@ export const complianceStaticDef = defineDerived({
     if (hfov) return hfov;
     const peep = elasticBase(c);
     if (!vt || !peep) return c.missing([vt, c.need('vt')], [peep, c.peepNeed()]);
-    return c.value(complianceStatic(vt.value, plat.value, peep.value), [vt, plat, peep], formulaExtras('{VT} ÷ ({Pplat} − {PEEP})', peep));
+    const formula = namingElasticBase('{VT} ÷ ({Pplat} − {PEEP})', peep);
+    return c.value(complianceStatic(vt.value, plat.value, peep.value), [vt, plat, ...peep.terms], formula === undefined ? undefined : { formula });
   },
 });
 
