@@ -11,16 +11,24 @@
 import { describe, expect, it } from 'vitest';
 import { checkNote } from '../../server/src/core';
 import { kpaText, numberText } from '../../server/src/core/service/derived-hover';
+import { gasAsReadingsShowIt } from '../../server/src/core/derive/interpret';
+import { run } from '../../server/src/cli/main';
+import { memoryIo } from '../helpers/memory-io';
 
 const MMHG_PER_KPA = 7.50062;
 
 function gas(pco2: string, unit: 'kPa' | 'mmHg', hco3: number) {
   const mmHg = Number(pco2) * (unit === 'kPa' ? MMHG_PER_KPA : 1);
   const ph = (6.1 + Math.log10(hco3 / (0.0307 * mmHg))).toFixed(2);
-  const d = checkNote(`@ 08:00\nabg ph ${ph}, pco2 ${pco2} ${unit}, hco3 ${hco3}`).analysis.derivation(0)!;
+  const text = `@ 08:00\nabg ph ${ph}, pco2 ${pco2} ${unit}, hco3 ${hco3}`;
+  const result = checkNote(text);
+  const d = result.analysis.derivation(0)!;
   const expected = d.derived.find((v) => v.id === 'paco2_expected')!;
   const reading = d.interpretations.find((i) => /the expected/.test(i.text))?.text ?? '';
-  return { expected, reading, within: /within the expected/.test(reading), outside: /(above|below) the expected/.test(reading) };
+  // The PaCO2's mmHg as the gas row of `show` writes it in a kPa note, beside that range.
+  const stated = result.analysis.timeline.timepoints[0]!.stated.find((s) => s.fieldId === 'paco2')!;
+  const rowMmhg = unit === 'kPa' ? Number(gasAsReadingsShowIt(stated, result.settings, expected?.range ?? null)?.mmHg) : NaN;
+  return { text, expected, reading, rowMmhg, within: /within the expected/.test(reading), outside: /(above|below) the expected/.test(reading) };
 }
 
 const ends = (text: string) => text.split('–').map(Number) as [number, number];
@@ -50,6 +58,16 @@ describe('the expected PaCO2 shown beside a PaCO2 written in kPa', () => {
     expect(kpaText(g.expected)).toBe('3.1–3.6');
   });
 
+  it('the mmHg in brackets too: 2.89 kPa (21.7 mmHg) with HCO3 10.5 beside 2.9–3.4 kPa (21.8–25.8 mmHg), not (22 mmHg)', async () => {
+    // 1.5 × 10.5 + 8 = 23.75 ± 2: 21.75–25.75 mmHg; 2.89 kPa is 21.68 mmHg, ± 0.0375: below.
+    const g = gas('2.89', 'kPa', 10.5);
+    expect(g.outside).toBe(true);
+    const io = memoryIo({ stdin: g.text, env: { NO_COLOR: '1' }, tty: false });
+    await run(['show', '-'], io);
+    expect(io.out()).toContain('PaCO2 2.89 kPa (21.7 mmHg)');
+    expect(io.out()).toContain('PaCO2 expected 2.9–3.4 kPa (21.8–25.8 mmHg)');
+  });
+
   it('agrees with the reading over a sweep of PaCO2s in kPa (one and two decimals) and of HCO3s', () => {
     let compared = 0;
     for (let h = 100; h <= 220; h += 7) {
@@ -61,6 +79,9 @@ describe('the expected PaCO2 shown beside a PaCO2 written in kPa', () => {
         const [low, high] = ends(kpaText(g.expected));
         const shownWithin = Number(pco2) >= low && Number(pco2) <= high;
         expect([pco2, h / 10, shownWithin]).toEqual([pco2, h / 10, g.within]);
+        // And the mmHg in brackets, the gas row's beside the range's, where the range is outside the PaCO2 by more than the PaCO2's resolution.
+        const [mLow, mHigh] = ends(numberText(g.expected));
+        if (g.outside) expect([pco2, h / 10, g.rowMmhg >= mLow && g.rowMmhg <= mHigh]).toEqual([pco2, h / 10, false]);
       }
     }
     expect(compared).toBeGreaterThan(50);

@@ -16,9 +16,8 @@ import {
 } from '../physiology';
 import { sideOf } from '../physiology/numeric';
 import { GAS_KPA, GAS_MMHG } from './gas-words';
-import { statedNumber } from '../present';
 import { defineDerived, type DeriveContext, type Outcome, type Term } from './context';
-import { decimalsAgainst, formatNumber } from '../util/format';
+import { decimalsAgainst, decimalsApart, formatNumber } from '../util/format';
 import type { Kept } from '../util/small-store';
 
 /** The fields `bicarbonate` reads, in its order (what to add where one written is not used). */
@@ -92,22 +91,29 @@ function rangeDecimals(range: { readonly low: number; readonly high: number }, d
  * the side of the range the classification puts it (compared at the resolution a PaCO2 in kPa was
  * written with, `sideOf`), as the acid–base reading writes the range (`GasWords.range`): an end the
  * PaCO2 is on at that resolution is shown with the PaCO2's own decimals, not pushed apart from it.
- * Where the PaCO2 was written in kPa, its mmHg in brackets is shown as `statedNumber` gives it
- * (`2.9 kPa (22 mmHg)`), so the ends in mmHg also keep their side of that number where more
- * decimals can (`22.2–26.2 mmHg`, not `22–26` beside a PaCO2 of 22 mmHg below the range).
+ * Where the PaCO2 was written in kPa, its mmHg in brackets (the gas row of `show`) and the ends in
+ * mmHg take decimals that keep them apart (`paco2ApartFromRange`): `2.89 kPa (21.7 mmHg)` beside
+ * `21.8–25.8 mmHg`, not `(22 mmHg)` beside `22–26`.
  */
 function paco2RangeDecimals(c: DeriveContext, r: { readonly low: number; readonly high: number }): { decimals: number; kpaDecimals: number } | { decimals: number } {
   const paco2 = c.field('paco2')?.value;
   if (paco2 === undefined) return { decimals: 0 };
   const resolution = c.writtenResolutionMmhg('paco2');
   let decimals = GAS_MMHG.rangeDecimals(r.low, r.high, paco2, resolution);
-  const stated = resolution > 0 ? c.input('paco2')?.stated : undefined;
-  const shown = stated ? Number(statedNumber(stated) ?? NaN) : NaN;
-  if (!Number.isNaN(shown)) {
-    if (sideOf(paco2, r.low, resolution) !== 0) decimals = Math.max(decimals, decimalsAgainst(r.low, decimals, shown));
-    if (sideOf(paco2, r.high, resolution) !== 0) decimals = Math.max(decimals, decimalsAgainst(r.high, decimals, shown));
-  }
+  if (resolution > 0) decimals = Math.max(decimals, paco2ApartFromRange(paco2, resolution, r));
   return { decimals, kpaDecimals: GAS_KPA.rangeDecimals(r.low, r.high, paco2, resolution) };
+}
+
+/**
+ * The decimals (from 0) at which a PaCO2 written in kPa (`paco2` in mmHg, `resolution` the mmHg its
+ * kPa stands for either side) and the ends of an expected range `r` it is not on at that resolution
+ * show, in mmHg, in the order they are in (`decimalsApart`). The derived range's ends and the gas
+ * row of `show` (`gasAsReadingsShowIt`) both take at least these.
+ */
+export function paco2ApartFromRange(paco2: number, resolution: number, r: { readonly low: number; readonly high: number }): number {
+  const low = sideOf(paco2, r.low, resolution) === 0 ? NaN : r.low;
+  const high = sideOf(paco2, r.high, resolution) === 0 ? NaN : r.high;
+  return Math.max(decimalsApart(paco2, 0, low), decimalsApart(paco2, 0, high));
 }
 
 export const hco3Calculated = defineDerived({
