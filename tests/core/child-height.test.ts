@@ -18,11 +18,12 @@
 //   at −3 SD at 10 to 13 years (the girls' growth spurt comes earlier): month 120 M 137.7795 S
 //   0.04626, month 132 M 143.1126 S 0.04703, month 144 M 149.0807 S 0.04753, month 156 M 156.0426 S
 //   0.04760; month 108 M 132.5652 S 0.04535, month 168 M 163.1816 S 0.04714.
-// L is 1 on every row: −3 SD is M × (1 − 3S). From 18 years the adult's usual minimum (120 cm,
-// the field registry) applies instead. Invented patients.
+// L is 1 on every row: −3 SD is M × (1 − 3S). The floor is capped at the adult's usual minimum
+// (120 cm, the field registry: common practice, no source), which applies from 18 years, so the
+// floor does not drop at 18. Invented patients.
 import { describe, expect, it } from 'vitest';
 import { checkNote } from '../../server/src/core';
-import { CHILD_HEIGHT_MARGIN_CM, childHeightMinCm, EARLIEST_BIRTH_WEEKS_BEFORE_TERM } from '../../server/src/core/analysis/bounds';
+import { ADULT_HEIGHT_USUAL_MIN_CM, CHILD_HEIGHT_MARGIN_CM, childHeightMinCm, EARLIEST_BIRTH_WEEKS_BEFORE_TERM } from '../../server/src/core/analysis/bounds';
 import { heightForAgeShorterCm, lengthForAgeGirlsCm } from '../../server/src/core/physiology/growth';
 
 const findings = (text: string) => checkNote(text).findings.map((f) => `${f.code} ${f.range.start.line + 1}`);
@@ -33,7 +34,7 @@ const minus3 = (m: number, s: number) => m * (1 - 3 * s);
 const corrected = (years: number) => years - (EARLIEST_BIRTH_WEEKS_BEFORE_TERM * 7) / 365.25;
 
 describe('the floor of a child\'s height after the first year (`childHeightMinCm`)', () => {
-  it('at 1, 2, 5, 10 and 17 years, and at 18 years for the function (a patient of 18 is an adult)', () => {
+  it('at 1, 2, 5, 10 and 12 years, and from about 12 years 8 months the adult\'s 120 cm', () => {
     // 1 y: corrected 253.25 days, on the first year's rows (WHO 2006, days 244 and 274): −3 SD 62.05 cm − 10 → 52.
     expect(childHeightMinCm(1)).toBe(52);
     // 2 y: corrected 1.693 y, between 1 y (74.0049, 0.03479: 66.28) and 2 y (85.7299, 0.03764: 76.05), WHO 2006: 73.05 − 10 → 63.
@@ -44,19 +45,26 @@ describe('the floor of a child\'s height after the first year (`childHeightMinCm
     expect(childHeightMinCm(10)).toBe(107);
     // 12 y: corrected 11.693 y, between the boys' 11 y (143.1126, 0.04703: 122.92) and 12 y (149.0807, 0.04753: 127.82): 126.32 − 10 → 116.
     expect(childHeightMinCm(12)).toBe(116);
-    // 17 y: between 16 y (month 192: 162.5156, 0.04176: 142.16) and 17 y (month 204: 162.8545, 0.04109: 142.78): 142.59 − 10 → 132.
-    expect(childHeightMinCm(17)).toBe(132);
-    // 18 y: between 17 y and 18 y (month 216: 163.0595, 0.04053: 143.23): 143.09 − 10 → 133.
-    expect(childHeightMinCm(18)).toBe(133);
+    // 17 y: between 16 y (month 192: 162.5156, 0.04176: 142.16) and 17 y (month 204: 162.8545, 0.04109: 142.78): 142.59 − 10 → 132,
+    // above the adult's usual minimum (120 cm, field registry, common practice, no source): capped at 120.
+    expect(heightForAgeShorterCm(corrected(17), -3)! - CHILD_HEIGHT_MARGIN_CM).toBeCloseTo(132.59, 1);
+    expect(ADULT_HEIGHT_USUAL_MIN_CM).toBe(120);
+    expect(childHeightMinCm(17)).toBe(120);
+    // 18 y for the function (a patient of 18 is an adult): 143.09 − 10 → 133 uncapped, 120 capped.
+    expect(childHeightMinCm(18)).toBe(120);
+    // The cap is reached at about 12 years 8 months: day 4,628 119 cm, day 4,629 120 cm (corrected 12.36 y,
+    // between the boys' 12 y, 127.82, and 13 y, 133.76: 130.0 − 10 → 120).
+    expect([childHeightMinCm(4628 / 365.25), childHeightMinCm(4629 / 365.25)]).toEqual([119, 120]);
+    for (const years of [13, 14, 15, 16, 17.5, 17.99]) expect([years, childHeightMinCm(years)]).toEqual([years, 120]);
   });
 
-  it('joins the first year\'s floor at a year without a drop, and rises or holds on every day to 18 years', () => {
+  it('joins the first year\'s floor at a year without a drop, rises or holds on every day to 18 years, and never exceeds the adult\'s', () => {
     // Just before a year, at a year and just after: 52 cm (the first year's rows, corrected age).
     expect([childHeightMinCm(364 / 365.25), childHeightMinCm(1), childHeightMinCm(366 / 365.25)]).toEqual([52, 52, 52]);
     let previous = childHeightMinCm(0);
     for (let day = 1; day <= 18 * 365.25; day++) {
       const floor = childHeightMinCm(day / 365.25);
-      expect([day, floor >= previous]).toEqual([day, true]);
+      expect([day, floor >= previous, floor <= ADULT_HEIGHT_USUAL_MIN_CM]).toEqual([day, true, true]);
       previous = floor;
     }
   });
@@ -98,8 +106,9 @@ describe('the floor of a child\'s height after the first year (`childHeightMinCm
     ];
     for (const [years, m, s] of rows) {
       expect(childHeightMinCm(years)).toBeLessThanOrEqual(minus3(m, s) - CHILD_HEIGHT_MARGIN_CM);
-      // And not far below it: the correction lowers the floor by 16 weeks of growth at most, the rounding by under 1 cm.
-      expect(childHeightMinCm(years)).toBeGreaterThan(minus3(m, s) - CHILD_HEIGHT_MARGIN_CM - 6);
+      // And not far below it: the correction lowers the floor by 16 weeks of growth at most, the rounding by under 1 cm;
+      // where that is above the adult's usual minimum (120 cm), the floor is the adult's.
+      expect(childHeightMinCm(years)).toBeGreaterThan(Math.min(minus3(m, s) - CHILD_HEIGHT_MARGIN_CM - 6, ADULT_HEIGHT_USUAL_MIN_CM - 1));
     }
     // Between whole years the straight line is above the shorter sex's month by 0.13 cm at most: at 12.5 years (boys month 150).
     expect(heightForAgeShorterCm(12.5, -3)! - minus3(152.4425, 0.04763)).toBeLessThan(0.14);
@@ -117,13 +126,13 @@ describe('a child\'s height below the floor of the age is unusual, with a word o
     expect(findings('patient age 3 y, height 70 cm')).toEqual(['PN302 1']);
   });
 
-  it('at 10 years: 106 cm is unusual, 107 cm is not; at 12 years 115 and 116 cm; at 17 years 131 and 132 cm', () => {
+  it('at 10 years: 106 cm is unusual, 107 cm is not; at 12 years 115 and 116 cm; at 17 years 119 and 120 cm', () => {
     expect(findings('patient age 12 y, height 115 cm')).toEqual(['PN302 1']);
     expect(findings('patient age 12 y, height 116 cm')).toEqual([]);
     expect(findings('patient age 10 y, height 106 cm')).toEqual(['PN302 1']);
     expect(findings('patient age 10 y, height 107 cm')).toEqual([]);
-    expect(findings('patient age 17 y, height 131 cm')).toEqual(['PN302 1']);
-    expect(findings('patient age 17 y, height 132 cm')).toEqual([]);
+    expect(findings('patient age 17 y, height 119 cm')).toEqual(['PN302 1']);
+    expect(findings('patient age 17 y, height 120 cm')).toEqual([]);
   });
 
   it('from 18 years the adult\'s usual minimum (120 cm) applies, and its message has no word on growth', () => {
@@ -140,8 +149,9 @@ describe('a child\'s height below the floor of the age is unusual, with a word o
       expect([s.usable, s.unitDoubt]).toEqual([true, null]);
       expect(messageOf(text)).toMatch(/A disorder of growth can make so short a height real at this age\.$/);
     }
-    // At 17 years a bare 125 is read in cm, as an adult's is, and is unusual for the age (132 cm).
-    expect(findings('patient age 17 y, height 125')).toEqual(['PN302 1']);
+    // At 17 years a bare 115 is read in cm, as an adult's is, and is unusual for the age (120 cm); 125 is usual, as at 18.
+    expect(findings('patient age 17 y, height 115')).toEqual(['PN302 1']);
+    expect(findings('patient age 17 y, height 125')).toEqual([]);
     // From the floor a bare number is a height in cm, as before.
     expect(findings('patient age 5 y, height 90, weight 14')).toEqual([]);
   });
@@ -149,5 +159,31 @@ describe('a child\'s height below the floor of the age is unusual, with a word o
   it('a height above the floor says nothing of growth; the message of another field is unchanged', () => {
     expect(messageOf('patient age 3 y, height 230 cm')).not.toMatch(/growth/);
     expect(messageOf('patient age 3 y\n@ 08:00\nvitals hr 236')).not.toMatch(/growth/);
+  });
+});
+
+describe('the floor at the child/adult boundary (18 years) does not jump', () => {
+  // The adult's usual minimum, 120 cm (field registry soft bounds: common practice, no source), caps
+  // the child's floor, so the same height reads the same on both sides of 18 years.
+  it('a 17-year-old and an 18-year-old of 125 cm are both usual (the 17-year-old was flagged: floor 132 cm)', () => {
+    expect(findings('patient age 17 y, height 125 cm')).toEqual([]);
+    expect(findings('patient age 18 y, height 125 cm')).toEqual([]);
+    expect(findings('patient age 17.9 y, height 125 cm')).toEqual([]);
+    expect(findings('patient age 215 mo, height 125 cm')).toEqual([]);
+  });
+
+  it('119 cm is unusual on both sides of 18 years, with the word on growth only for the child', () => {
+    for (const age of ['14 y', '16 y', '17 y', '17.99 y', '18 y', '19 y', '40 y']) {
+      expect([age, findings(`patient age ${age}, height 119 cm`)]).toEqual([age, ['PN302 1']]);
+      expect([age, findings(`patient age ${age}, height 120 cm`)]).toEqual([age, []]);
+    }
+    expect(messageOf('patient age 17 y, height 119 cm')).toBe('Height 119 cm is unusual (usually 120 cm to 220 cm): check the unit and the transcription. A disorder of growth can make so short a height real at this age.');
+    expect(messageOf('patient age 18 y, height 119 cm')).toBe('Height 119 cm is unusual (usually 120 cm to 220 cm): check the unit and the transcription.');
+  });
+
+  it('younger children keep the floor of their age (below 120 cm)', () => {
+    // 12 y: 116 cm (WHO 2007 boys' rows, as above); 10 y: 107 cm.
+    expect(findings('patient age 12 y, height 117 cm')).toEqual([]);
+    expect(findings('patient age 12 y, height 115 cm')).toEqual(['PN302 1']);
   });
 });

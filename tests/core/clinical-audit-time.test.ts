@@ -288,11 +288,12 @@ const CASES: readonly TimeCase[] = [
     time: [2, 1440 + 90],
   },
   {
-    name: 'CPAP a day later with an exhaled VT and a peak: Cdyn over the CPAP level',
-    source: 'compliance VT / (Ppeak − PEEP) (common practice, no source)',
+    name: 'CPAP a day later with an exhaled VT and a peak: no Cdyn, as the patient\'s own effort moves the volume',
+    source: 'compliance VT / (Ppeak − PEEP) holds for breaths the ventilator alone delivers (respiratory mechanics, common practice, no source)',
     note: SUPPORT,
     timepoint: 2,
-    values: { compliance_dynamic: [400 / 8, 9], minute_ventilation: [7.2, 9], pf_ratio: [75 / 0.4, 9] },
+    values: { minute_ventilation: [7.2, 9], pf_ratio: [75 / 0.4, 9] },
+    absent: ['compliance_dynamic'],
     time: [3, 2 * 1440 + 90],
   },
   {

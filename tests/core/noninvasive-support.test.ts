@@ -173,19 +173,22 @@ describe('what to add for the end-expiratory pressure follows the support in for
   ] as const) {
     it(`${oxygen}: add ${need}`, () => {
       const text = withReadings(oxygen);
-      for (const id of mechanics) expect(needsOf(text, id), id).toEqual([need]);
+      // Under NIV or CPAP the dynamic compliance is not worked out (the patient's own effort moves the volume): nothing to add for it.
+      for (const id of need === 'peep' ? mechanics : mechanics.slice(0, 2)) expect(needsOf(text, id), id).toEqual([need]);
+      if (need !== 'peep') expect(needsOf(text, 'compliance_dynamic')).toBeUndefined();
     });
   }
 
   it('`show` says so for an IPAP alone, and following it gives the values: ΔP 16 − 5 = 11 cmH2O', async () => {
     const io = memoryIo({ stdin: IPAP_ALONE });
     await run(['show', '-'], io);
-    expect(io.out()).toContain('missing  add epap (on the oxygen line) to get ΔP, Cstat, Cdyn');
+    expect(io.out()).toContain('missing  add epap (on the oxygen line) to get ΔP, Cstat\n');
+    expect(io.out()).toContain('n/a      Cdyn: not worked out under NIV: ');
     const d = derivation(withReadings('oxygen ipap 12, epap 5, fio2 0.4'));
     expect(d.derived.find((v) => v.id === 'driving_pressure')?.value).toBe(11);
-    // Cstat 450 ÷ (16 − 5), Cdyn 450 ÷ (18 − 5).
+    // Cstat 450 ÷ (16 − 5); no Cdyn under NIV.
     expect(d.derived.find((v) => v.id === 'compliance_static')?.value).toBeCloseTo(450 / 11, 9);
-    expect(d.derived.find((v) => v.id === 'compliance_dynamic')?.value).toBeCloseTo(450 / 13, 9);
+    expect(d.derived.find((v) => v.id === 'compliance_dynamic')).toBeUndefined();
     expect(d.missing.filter((m) => mechanics.includes(m.id))).toEqual([]);
   });
 

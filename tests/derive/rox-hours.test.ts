@@ -91,8 +91,9 @@ describe('the ROX index read against the thresholds of its hour (Roca 2019)', ()
     // 09:00 to 13:00 = 4 h: no threshold (the windows are 1–3, 5–7 and 11–13 h).
     const at4 = rox(started('@ 13:00\nvitals rr 45, spo2 88 %\n'));
     expect([at4.notes, at4.caveat]).toEqual([[ROCA_NOTE], null]);
+    // At least 6 h: not read, and said why (tests below).
     const atLeast = rox('@ 08:00\noxygen hfnc 50 L/min, fio2 0.6\n@ 14:00\nvitals rr 45, spo2 88 %\n');
-    expect([atLeast.notes, atLeast.caveat]).toEqual([[ROCA_NOTE], null]);
+    expect([atLeast.notes.length, atLeast.caveat]).toEqual([2, 'start of high flow not in the note']);
     const unknown = rox('@ 07:00\noxygen room air\n@ after the round\noxygen hfnc 50 L/min, fio2 0.6\n@ review\nvitals rr 45, spo2 88 %\n');
     expect([unknown.notes, unknown.caveat]).toEqual([[ROCA_NOTE], null]);
   });
@@ -102,7 +103,7 @@ describe('the ROX index read against the thresholds of its hour (Roca 2019)', ()
     expect(roxAtHour(3.4649, six)!.caveat).toBe('6 h: < 3.47');
     expect(roxAtHour(3.4651, six)!.caveat).toBe('6 h: 3.47–4.88');
     expect(roxAtHour(4.875, six)!.caveat).toBe('6 h: ≥ 4.88');
-    expect(roxAtHour(5, { hours: 6, atLeast: true })).toBeNull();
+    expect(roxAtHour(5, { hours: 6, atLeast: true })?.caveat).toBe('start of high flow not in the note');
   });
 
   it('hours and sides at the edges of the windows', () => {
@@ -171,5 +172,42 @@ describe('high flow in force is read as the rest of the core reads the device (`
     const tps = checkNote(text).analysis.timeline.timepoints;
     expect(tps.map(onHighFlow)).toEqual([false, true, false, false]);
     expect(hoursAt(text)).toBeNull();
+  });
+});
+
+// Why no threshold is read where high flow is in force from the note's first timepoint: when it began
+// is not in the note (it may have begun before), so its hours are "at least" (by design). Said in
+// plain words in the hover and JSON (a note) and beside the value in `show` and the inlay hint (a
+// caveat), with how to write the start: what the patient had before, at an earlier timepoint.
+describe('a run of high flow from the note\'s first timepoint', () => {
+  const FROM_FIRST = '@ 08:00\noxygen hfnc 50 L/min, fio2 0.6\nvitals rr 30, spo2 90 %\n@ 14:00\nvitals rr 45, spo2 88 %\n';
+
+  it('says why the ROX is not read against the thresholds, and how to write the start', () => {
+    const r = rox(FROM_FIRST);
+    expect(r.caveat).toBe('start of high flow not in the note');
+    expect(r.notes[1]).toBe("not read against the 2, 6 or 12 h thresholds (Roca 2019): high flow is in force from the note's first timepoint, 6 h before this one, and may have begun before it, so its hours are not known. To have them counted, write what the patient had before high flow at an earlier timepoint (`oxygen room air` or `oxygen cannula 2 L/min`, with its time): high flow then counts from the first timepoint that names it");
+    // At the first timepoint itself.
+    expect(derivation(FROM_FIRST, {}, 0).derived.find((d) => d.id === 'rox_index')!.notes[1]).toMatch(/^not read against the 2, 6 or 12 h thresholds \(Roca 2019\): high flow is in force from the note's first timepoint and may have begun before it/);
+  });
+
+  it('following the advice gives the reading: room air at 07:30, high flow from 08:00, at 14:00 6 h (3.26 < 3.47)', () => {
+    // 88 ÷ 0.6 ÷ 45 = 3.26: below the 6 h failure threshold 3.47 (Roca 2019).
+    const r = rox(`@ 07:30\noxygen room air\n${FROM_FIRST}`);
+    expect(r.caveat).toBe('6 h: < 3.47');
+  });
+
+  it('says nothing of it where the hours are at least past the last window (13 h): no threshold could be read', () => {
+    const r = rox('@ 08:00\noxygen hfnc 50 L/min, fio2 0.6\n@ 22:00\nvitals rr 30, spo2 90 %\n');
+    expect([r.notes, r.caveat]).toEqual([[ROCA_NOTE], null]);
+  });
+
+  it('the hover and `show` say so', async () => {
+    const d = derivation(FROM_FIRST);
+    const value = d.derived.find((x) => x.id === 'rox_index')!;
+    const io = memoryIo({ stdin: FROM_FIRST });
+    await run(['show', '-'], io);
+    // The FiO2 is carried from 08:00 (`*`).
+    expect(io.out()).toContain('ROX 3.26* (start of high flow not in the note)');
+    expect(derivedHover(value)).toContain('write what the patient had before high flow at an earlier timepoint');
   });
 });

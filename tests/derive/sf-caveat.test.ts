@@ -28,8 +28,9 @@ describe('an S/F ratio from an SpO2 above 97 %', () => {
 
   it('says it beside the number in the inlay hint', () => {
     // 99 ÷ 0.4 ÷ 22 = 11.25 (ROX, Roca 2016: SpO2 ÷ FiO2 ÷ RR); 97 ÷ 0.4 = 242.5, shown 243.
-    expect(oxygenationHints(99)).toEqual(['S/F 248 (SpO2 > 97 %) · ROX 11.25']);
-    expect(oxygenationHints(97)).toEqual(['S/F 243 · ROX 11.02']);
+    // High flow from the note's first timepoint: the ROX says its start is not in the note.
+    expect(oxygenationHints(99)).toEqual(['S/F 248 (SpO2 > 97 %) · ROX 11.25 (start of high flow not in the note)']);
+    expect(oxygenationHints(97)).toEqual(['S/F 243 · ROX 11.02 (start of high flow not in the note)']);
   });
 
   it('says it beside the number in `pneumark show`', async () => {

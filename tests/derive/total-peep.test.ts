@@ -105,3 +105,58 @@ describe('PN407 names the total PEEP it compared with', () => {
     expect(f[0]?.message).toContain('equals the total PEEP');
   });
 });
+
+// Where no total PEEP is written but an intrinsic PEEP is (a reading of the same end-expiratory
+// hold), the total PEEP is the set PEEP plus the intrinsic PEEP: in a passive patient the pressure
+// at the end of an expiratory hold is the set PEEP plus any intrinsic PEEP (respiratory mechanics,
+// common practice, no source; the rule PN418 already holds total, set and intrinsic PEEP to). The
+// formula says so: `Pplat − (PEEP + PEEPi)`, with both inputs named.
+describe('the total PEEP as set + intrinsic PEEP where no total is written', () => {
+  it('driving pressure 26 − (8 + 4) = 14 cmH2O, not 26 − 8 = 18; static compliance 380 ÷ 14 ≈ 27.1 mL/cmH2O', () => {
+    const text = '@ 08:00\nvent mode VC, vt 380, rate 18, peep 8, autopeep 4, plateau 26';
+    const dp = derived(text, 'driving_pressure');
+    expect(dp.value).toBe(14);
+    expect(dp.formula).toBe('Pplat − (PEEP + PEEPi)');
+    expect(dp.substituted).toBe('26 − (8 + 4) = 14 cmH2O');
+    expect(dp.inputs.map((t) => t.name)).toEqual(['Pplat', 'PEEP', 'PEEPi']);
+    const cstat = derived(text, 'compliance_static');
+    expect(cstat.value).toBeCloseTo(380 / 14, 9);
+    expect(cstat.formula).toBe('VT ÷ (Pplat − (PEEP + PEEPi))');
+    expect(cstat.substituted).toBe('380 ÷ (26 − (8 + 4)) = 27 mL/cmH2O');
+  });
+
+  it('a total PEEP written wins over the sum (it is what the hold measured): 26 − 12 = 14 with tpeep 12, autopeep 3', () => {
+    const dp = derived('@ 08:00\nvent mode VC, vt 380, peep 8, tpeep 12, autopeep 3, plateau 26', 'driving_pressure');
+    expect(dp.value).toBe(14);
+    expect(dp.formula).toBe('Pplat − PEEPtot');
+  });
+
+  it('the intrinsic PEEP is a reading of its timepoint: not carried to the next plateau (26 − 8 = 18 there)', () => {
+    const text = '@ 08:00\nvent mode VC, vt 380, peep 8, autopeep 4, plateau 26\n@ 09:00\nvent plateau 26';
+    expect(derived(text, 'driving_pressure').value).toBe(18);
+  });
+
+  it('the set PEEP carried from an earlier timepoint is summed with the intrinsic PEEP written here', () => {
+    const text = '@ 08:00\nvent mode VC, vt 380, peep 8\n@ 09:00\nvent autopeep 5, plateau 27';
+    const dp = derived(text, 'driving_pressure');
+    expect(dp.value).toBe(14);
+    expect(dp.usesCarried).toBe(true);
+  });
+
+  it('not under NIV: an intrinsic PEEP beside an EPAP is not summed with it (an end-expiratory hold is a ventilator\'s manoeuvre)', () => {
+    const dp = derived('@ 08:00\noxygen niv ipap 16, epap 6, fio2 0.4\nvent vt 450, plateau 16, autopeep 2', 'driving_pressure');
+    expect(dp.formula).toBe('Pplat − EPAP');
+    expect(dp.value).toBe(10);
+  });
+
+  it('dynamic compliance and mechanical power keep the set PEEP', () => {
+    const text = '@ 08:00\nvent mode VC, vt 380, rate 18, peep 8, autopeep 4, plateau 26, peak 30';
+    expect(derived(text, 'compliance_dynamic').value).toBeCloseTo(380 / 22, 9);
+    expect(derived(text, 'mechanical_power').inputs.map((t) => t.name)).not.toContain('PEEPi');
+  });
+
+  it('PN407 names both where the plateau equals their sum', () => {
+    const f = checkNote('@ 08:00\nvent mode VC, vt 380, peep 8, autopeep 3, plateau 11').findings.filter((x) => x.code === 'PN407');
+    expect(f.map((x) => x.message)).toEqual(['Plateau pressure 11 cmH2O equals the set PEEP plus intrinsic PEEP with a tidal volume of 380 mL: a breath delivered with no rise in pressure, which no respiratory system allows; consistent with a transcription error in the plateau, the set PEEP or the intrinsic PEEP.']);
+  });
+});

@@ -72,7 +72,9 @@ export function renderShow(path: string, result: NoteResult, p: Paint): string {
         printedHeader = true;
       }
       const kpa = headerLines.has(node.line) ? headerShowsKpa(analysis.timeline) : showsKpa(current);
-      out.push(renderSectionLine(node, statedByLine.get(node.line) ?? [], kpa, result.settings, p, legend));
+      // The PaCO2 expected for a metabolic disorder at this timepoint, which a PaCO2 in kPa keeps its side of.
+      const expected = kpa && current !== null && (statedByLine.get(node.line) ?? []).some((s) => s.fieldId === 'paco2') ? analysis.derivation(current.index)?.derived.find((d) => d.id === 'paco2_expected')?.range ?? null : null;
+      out.push(renderSectionLine(node, statedByLine.get(node.line) ?? [], kpa, result.settings, p, legend, expected));
     } else if (node.kind === 'unknown') {
       out.push(`  ${p.red('?')} ${visible(node.text.trim())}`);
       legend.mark('unreadable-line');
@@ -93,12 +95,12 @@ export function renderShow(path: string, result: NoteResult, p: Paint): string {
  * `PaCO2 9.6 kPa (72 mmHg)`, a PaO2 or PaCO2 with the decimals that keep it on its side of the
  * thresholds the readings name (`gasAsReadingsShowIt`): `PaO2 7.99 kPa (59.9 mmHg)` beside "below 8.0 kPa".
  */
-function renderSectionLine(node: Extract<LineNode, { kind: 'section' }>, stated: readonly StatedValue[], kpa: boolean, settings: Settings, p: Paint, legend: Legend): string {
+function renderSectionLine(node: Extract<LineNode, { kind: 'section' }>, stated: readonly StatedValue[], kpa: boolean, settings: Settings, p: Paint, legend: Legend, expected: { readonly low: number; readonly high: number } | null = null): string {
   const head = `  ${p.blue(visible(node.section).padEnd(8))}`;
   if (node.section === 'note') return `${head} ${p.dim(visible(node.prose?.text ?? ''))}`;
   const parts = stated.map((s) => {
     const inKpa = kpa && !s.unitDoubt ? statedInKpa(s) : null;
-    const asRead = inKpa ? gasAsReadingsShowIt(s, settings) : null;
+    const asRead = inKpa ? gasAsReadingsShowIt(s, settings, s.fieldId === 'paco2' ? expected : null) : null;
     // A bare number whose unit is in doubt is shown as written, with what it would be if it was
     // written in the likely unit (never a conversion from the unit it is doubted in).
     const alt = asRead ? `${asRead.mmHg} mmHg` : inKpa ? formatStated(s) : s.unitDoubt ? ifLikelyUnit(s) : s.unit !== 'fraction' ? formatAlternative(s) : null;

@@ -90,6 +90,18 @@ const DAYS_PER_YEAR = 365.25;
 const FIRST_YEAR_LAST_DAY = 365;
 
 /**
+ * An adult's usual minimum height (cm), the field registry's soft minimum (120 cm): the cap of a
+ * child's floor (`childHeightMinCm`), so that a teenager's floor is never stricter than the
+ * adult's and the floor does not drop at ADULT_FROM_YEARS (a 17-year-old of 125 cm was unusual, an
+ * 18-year-old of 125 cm was not).
+ */
+export const ADULT_HEIGHT_USUAL_MIN_CM: number = (() => {
+  const min = fieldById('height')?.soft?.min;
+  if (min === undefined) throw new Error('bounds: height needs a usual minimum');
+  return min;
+})();
+
+/**
  * The shortest usual height (cm) of a child of `ageYears` (under ADULT_FROM_YEARS), in whole cm
  * rounded down: until EARLIEST_BIRTH_WEEKS_BEFORE_TERM weeks after birth, the −3 SD length of a
  * girl born at 24 weeks (24.0 cm, INTERGROWTH-21st); from then on the larger of that and the
@@ -100,7 +112,10 @@ const FIRST_YEAR_LAST_DAY = 365;
  * on the first year's last row, so the floor does not drop there. The shorter sex, the earliest
  * birth and a margin of some 1.5 to 6 SD more, so that no real child's height is below it short of
  * a disorder of growth: 24 cm at birth, 33 cm at 16 weeks, 46 cm at 8 months, 52 cm at a year, 63
- * cm at 2 years, 83 cm at 5, 107 cm at 10, 116 cm at 12, 132 cm at 17. A height below it is unusual
+ * cm at 2 years, 83 cm at 5, 107 cm at 10, 116 cm at 12; never above an adult's usual minimum
+ * (ADULT_HEIGHT_USUAL_MIN_CM, 120 cm), which it reaches at about 12 years 8 months (day 4,629) and
+ * keeps to ADULT_FROM_YEARS, so it does not drop at 18 (uncapped it was 132 cm at 17, and a
+ * 17-year-old of 125 cm was unusual where an 18-year-old was not). A height below it is unusual
  * (PN302, with a word on disorders of growth), and under INFANT_UNTIL_YEARS no height at all for a
  * bare number (an 8-month-old's `height 10` is not offered inches, 25 cm). It was 30 cm at every
  * age under a year (from memory), which flagged a real preterm newborn and passed a 10-month-old
@@ -113,8 +128,9 @@ export function childHeightMinCm(ageYears: number): number {
     : correctedDays <= FIRST_YEAR_LAST_DAY ? lengthForAgeGirlsCm(correctedDays, -3)
     : heightForAgeShorterCm(Math.max(1, correctedDays / DAYS_PER_YEAR), -3);
   const newborn = Math.floor(PRETERM_GIRL_LENGTH_MINUS_3SD_CM);
-  return line === null ? newborn : Math.max(newborn, Math.floor(line - CHILD_HEIGHT_MARGIN_CM));
+  return line === null ? newborn : Math.min(ADULT_HEIGHT_USUAL_MIN_CM, Math.max(newborn, Math.floor(line - CHILD_HEIGHT_MARGIN_CM)));
 }
+
 
 /** An infant's height window: from `childHeightMinCm` to a child's usual maximum. */
 function infantHeight(ageYears: number): Bounds {

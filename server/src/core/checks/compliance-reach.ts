@@ -33,9 +33,21 @@ const CEILING = COMPLIANCE_CEILING_ML_PER_CMH2O;
 
 /** The input of a derived value that is the end-expiratory pressure: PEEP, EPAP or CPAP as its line names it, or the total PEEP. */
 function endExpiratoryName(d: DerivedValue): string {
+  // The set PEEP plus the intrinsic PEEP of a hold (derive/mechanics.ts `elasticBase`): both named.
+  if (d.inputs.some((t) => t.name === 'PEEPi')) return 'set PEEP plus intrinsic PEEP';
   const name = d.inputs.find((t) => t.name !== 'Pplat' && t.name !== 'Ppeak' && t.name !== 'VT')?.name ?? 'PEEP';
   // A total PEEP of an end-expiratory hold (derive/mechanics.ts `elasticBase`) is named in words.
   return name === 'PEEPtot' ? 'total PEEP' : name;
+}
+
+/** The end-expiratory pressure as a place a transcription error may be, in a list: `set PEEP, the intrinsic PEEP` where the two were summed. */
+function suspectName(d: DerivedValue): string {
+  return d.inputs.some((t) => t.name === 'PEEPi') ? 'set PEEP, the intrinsic PEEP' : endExpiratoryName(d);
+}
+
+/** `the plateau or the PEEP`, or where the set and intrinsic PEEP were summed `the plateau, the set PEEP or the intrinsic PEEP`. */
+function plateauOrBase(d: DerivedValue): string {
+  return d.inputs.some((t) => t.name === 'PEEPi') ? 'the plateau, the set PEEP or the intrinsic PEEP' : `the plateau or the ${endExpiratoryName(d)}`;
 }
 
 /** A formula with its numbers, without its result: `450 ÷ (12 − 10)` of `450 ÷ (12 − 10) = 225 mL/cmH2O`. */
@@ -45,10 +57,10 @@ function withoutResult(substituted: string): string {
 }
 
 const aboveCeilingMessage = (c: DerivedValue): string =>
-  `Static compliance ${formatAgainst(c.value, 0, CEILING)} mL/cmH2O (${withoutResult(c.substituted)}) is above ${CEILING} mL/cmH2O, more than the lungs and chest wall of a healthy adult give together: consistent with a transcription error in the plateau, the ${endExpiratoryName(c)} or the tidal volume.`;
+  `Static compliance ${formatAgainst(c.value, 0, CEILING)} mL/cmH2O (${withoutResult(c.substituted)}) is above ${CEILING} mL/cmH2O, more than the lungs and chest wall of a healthy adult give together: consistent with a transcription error in the plateau, the ${suspectName(c)} or the tidal volume.`;
 
 const noRiseMessage = (vt: number, dp: DerivedValue): string =>
-  `Plateau pressure ${formatNumber(dp.inputs[0]?.value ?? NaN, 0)} cmH2O equals the ${endExpiratoryName(dp)} with a tidal volume of ${formatNumber(vt, 0)} mL: a breath delivered with no rise in pressure, which no respiratory system allows; consistent with a transcription error in the plateau or the ${endExpiratoryName(dp)}.`;
+  `Plateau pressure ${formatNumber(dp.inputs[0]?.value ?? NaN, 0)} cmH2O equals the ${endExpiratoryName(dp)} with a tidal volume of ${formatNumber(vt, 0)} mL: a breath delivered with no rise in pressure, which no respiratory system allows; consistent with a transcription error in ${plateauOrBase(dp)}.`;
 
 const dynamicAboveCeilingMessage = (c: DerivedValue): string =>
   `Dynamic compliance ${formatAgainst(c.value, 0, CEILING)} mL/cmH2O (${withoutResult(c.substituted)}) is above ${CEILING} mL/cmH2O, more than the lungs and chest wall of a healthy adult give together, and a static compliance is higher still: consistent with a transcription error in the peak pressure, the ${endExpiratoryName(c)} or the tidal volume.`;

@@ -16,8 +16,9 @@ import {
   type AcidBaseClassification,
 } from '../physiology';
 import { sideOf } from '../physiology/numeric';
+import { GAS_KPA, GAS_MMHG } from './gas-words';
 import { defineDerived, type DeriveContext, type Outcome, type Term } from './context';
-import { decimalsAgainst, formatNumber } from '../util/format';
+import { decimalsAgainst, decimalsApart, formatNumber } from '../util/format';
 import type { Kept } from '../util/small-store';
 
 /** The fields `bicarbonate` reads, in its order (what to add where one written is not used). */
@@ -84,6 +85,36 @@ function withheldForInconsistentGas(cls: AcidBaseClassification): Outcome | null
 function rangeDecimals(range: { readonly low: number; readonly high: number }, decimals: number, observed: number | undefined): number {
   if (observed === undefined) return decimals;
   return Math.max(decimalsAgainst(range.low, decimals, observed), decimalsAgainst(range.high, decimals, observed));
+}
+
+/**
+ * The decimals of an expected PaCO2's ends, in mmHg and in kPa, that show the PaCO2 of the gas on
+ * the side of the range the classification puts it (compared at the resolution a PaCO2 in kPa was
+ * written with, `sideOf`), as the acid–base reading writes the range (`GasWords.range`): an end the
+ * PaCO2 is on at that resolution is shown with the PaCO2's own decimals, not pushed apart from it.
+ * Where the PaCO2 was written in kPa, its mmHg in brackets (the gas row of `show`) and the ends in
+ * mmHg take decimals that keep them apart (`paco2ApartFromRange`): `2.89 kPa (21.7 mmHg)` beside
+ * `21.8–25.8 mmHg`, not `(22 mmHg)` beside `22–26`.
+ */
+function paco2RangeDecimals(c: DeriveContext, r: { readonly low: number; readonly high: number }): { decimals: number; kpaDecimals: number } | { decimals: number } {
+  const paco2 = c.field('paco2')?.value;
+  if (paco2 === undefined) return { decimals: 0 };
+  const resolution = c.writtenResolutionMmhg('paco2');
+  let decimals = GAS_MMHG.rangeDecimals(r.low, r.high, paco2, resolution);
+  if (resolution > 0) decimals = Math.max(decimals, paco2ApartFromRange(paco2, resolution, r));
+  return { decimals, kpaDecimals: GAS_KPA.rangeDecimals(r.low, r.high, paco2, resolution) };
+}
+
+/**
+ * The decimals (from 0) at which a PaCO2 written in kPa (`paco2` in mmHg, `resolution` the mmHg its
+ * kPa stands for either side) and the ends of an expected range `r` it is not on at that resolution
+ * show, in mmHg, in the order they are in (`decimalsApart`). The derived range's ends and the gas
+ * row of `show` (`gasAsReadingsShowIt`) both take at least these.
+ */
+export function paco2ApartFromRange(paco2: number, resolution: number, r: { readonly low: number; readonly high: number }): number {
+  const low = sideOf(paco2, r.low, resolution) === 0 ? NaN : r.low;
+  const high = sideOf(paco2, r.high, resolution) === 0 ? NaN : r.high;
+  return Math.max(decimalsApart(paco2, 0, low), decimalsApart(paco2, 0, high));
 }
 
 export const hco3Calculated = defineDerived({
@@ -201,11 +232,11 @@ export const paco2Expected = defineDerived({
     if (withheld) return withheld;
     if (cls.primary === 'metabolic-acidosis') {
       const r = expectedPaco2MetabolicAcidosis(hco3.value);
-      return r ? c.value(r.centre, [hco3], { range: r, formula: '1.5 × {HCO3} + 8 ± 2', notes: ["Winters' formula"], decimals: rangeDecimals(r, 0, c.field('paco2')?.value) }) : c.value(null, []);
+      return r ? c.value(r.centre, [hco3], { range: r, formula: '1.5 × {HCO3} + 8 ± 2', notes: ["Winters' formula"], ...paco2RangeDecimals(c, r) }) : c.value(null, []);
     }
     if (cls.primary === 'metabolic-alkalosis') {
       const r = expectedPaco2MetabolicAlkalosis(hco3.value);
-      return r ? c.value(r.centre, [hco3], { range: r, formula: '40 + 0.7 × ({HCO3} − 24) ± 2', decimals: rangeDecimals(r, 0, c.field('paco2')?.value) }) : c.value(null, []);
+      return r ? c.value(r.centre, [hco3], { range: r, formula: '40 + 0.7 × ({HCO3} − 24) ± 2', ...paco2RangeDecimals(c, r) }) : c.value(null, []);
     }
     return { kind: 'na', reason: 'the primary disorder is not metabolic' };
   },

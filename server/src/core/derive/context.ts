@@ -38,6 +38,12 @@ export interface ValueExtras {
    * 21.6–25.6 mmHg beside a PaCO2 of 26 shows so, not as 22–26).
    */
   readonly decimals?: number | undefined;
+  /**
+   * Decimals of a gas pressure's range in kPa, where shown in kPa first, instead of the unit's one
+   * (`KPA_DECIMALS`): the ends of an expected PaCO2 keep a PaCO2 written in kPa on the side the
+   * classification puts it (`GasWords.rangeDecimals`).
+   */
+  readonly kpaDecimals?: number | undefined;
 }
 
 const NO_EXTRAS: ValueExtras = {};
@@ -722,6 +728,8 @@ class ComputedValue implements DerivedValue {
   readonly usesCarried: boolean;
   readonly line: number | null;
   readonly template: string;
+  /** See `ValueExtras.kpaDecimals`; null: the unit's own. */
+  readonly kpaDecimals: number | null;
   // ES private fields: not own properties, so comparing two values ignores whether they were built.
   #shown: string | null = null;
   /** The term other formulas read this value as (most read it under one name, several times a gas). */
@@ -746,6 +754,7 @@ class ComputedValue implements DerivedValue {
     this.usesCarried = carried;
     this.line = line;
     this.template = extras.formula ?? def.formula;
+    this.kpaDecimals = extras.kpaDecimals ?? null;
   }
 
   /** This value as an input of another formula, under `name`. */

@@ -78,8 +78,8 @@ export class GasWords {
     return this.measured(mmHg, resolution, shownEnd);
   }
 
-  /** The decimals of `range`'s ends (in the unit shown): see `range`. */
-  private rangeDecimals(low: number, high: number, observed: number, resolution: number): number {
+  /** The decimals of `range`'s ends (in the unit shown): see `range`. The derived expected PaCO2 shows its ends with them too. */
+  rangeDecimals(low: number, high: number, observed: number, resolution: number): number {
     const kpa = this.kpa;
     const onLow = sideOf(observed, low, resolution) === 0;
     const onHigh = sideOf(observed, high, resolution) === 0;

@@ -122,6 +122,25 @@ function beyondLookBack(at: number, now: number): boolean {
   return at <= now && now - at > LOOK_BACK_MINUTES;
 }
 
+/** The last hour of high flow a ROX index is read at (12 h and its window): "at least" more than this can be read at none. */
+const LAST_WINDOW_END_H = Math.max(...ROX_FAILURE_BELOW.keys()) + ROX_HOUR_WINDOW_H;
+
+/** The few words beside a ROX index of a run whose start is not in the note (`show`, the inlay hint). */
+export const START_NOT_IN_NOTE = 'start of high flow not in the note';
+
+/**
+ * Why a ROX index of a run in force from the note's first timepoint is not read against the
+ * thresholds of its hour, and how to write when high flow began: the oxygen line in force before it,
+ * at an earlier timepoint (the run then begins at the first timepoint on high flow after it).
+ */
+function startNotInNote(hours: number): RoxAtHour {
+  const since = hours > 0 ? `, ${formatShort(hours, 1)} h before this one,` : '';
+  return {
+    note: `not read against the 2, 6 or 12 h thresholds (Roca 2019): high flow is in force from the note's first timepoint${since} and may have begun before it, so its hours are not known. To have them counted, write what the patient had before high flow at an earlier timepoint (\`oxygen room air\` or \`oxygen cannula 2 L/min\`, with its time): high flow then counts from the first timepoint that names it`,
+    caveat: START_NOT_IN_NOTE,
+  };
+}
+
 /** What a ROX index adds beside its number when read against the thresholds of its hour of high flow. */
 export interface RoxAtHour {
   readonly note: string;
@@ -131,10 +150,14 @@ export interface RoxAtHour {
 /**
  * A ROX index (as shown, two decimals, so that the number read is the one compared) against the
  * thresholds of 2, 6 or 12 h of high flow where the hours are known (not "at least") and within
- * `ROX_HOUR_WINDOW_H` of one of them; else null. Source: `roca-2019`.
+ * `ROX_HOUR_WINDOW_H` of one of them; else null. Source: `roca-2019`. Where the hours are "at
+ * least" and could still be within a window (high flow in force from the note's first timepoint,
+ * so that when it began is not in the note), why it is not read, and how to write the start
+ * (`START_NOT_IN_NOTE`): said rather than left silent.
  */
 export function roxAtHour(rox: number, run: HighFlowHours | null): RoxAtHour | null {
-  if (run === null || run.atLeast) return null;
+  if (run === null) return null;
+  if (run.atLeast) return run.hours <= LAST_WINDOW_END_H ? startNotInNote(run.hours) : null;
   const hour = roxThresholdHour(run.hours);
   if (hour === null) return null;
   const shown = formatNumber(rox, 2);

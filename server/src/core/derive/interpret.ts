@@ -7,10 +7,10 @@
 import { ALKALOSIS_ANION_GAP_MARGIN_MMOL_L, ANION_GAP_UPPER_NORMAL_MMOL_L, BERLIN_BAND_SEVERITY, HCO3_CENTRE_MMOL_L, HCO3_NORMAL_MMOL_L, PACO2_NORMAL_MMHG, PH_NORMAL, berlinOxygenationBand, inspiredPo2Humidified, type AcidBaseClassification, type AcidBaseDisorder, type BerlinOxygenationBand, type MetabolicAcidosisKind, type PrimaryAcidBaseFinding } from '../physiology';
 import { sideOf } from '../physiology/numeric';
 import type { Settings } from '../settings';
-import { formatAgainst, formatAgeYears, formatNumber, formatShort, rangeAgainst, wordList, writtenDecimals } from '../util/format';
+import { decimalsAgainst, formatAgainst, formatAgeYears, formatNumber, formatShort, rangeAgainst, wordList, writtenDecimals } from '../util/format';
 import { carriedFromText, kpaFromMmhg, kpaNumber, kpaResolutionMmhg, showsKpa, statedKpaNumber, statedNumber } from '../present';
 import type { StatedValue } from '../analysis/model';
-import { classification } from './acid-base';
+import { classification, paco2ApartFromRange } from './acid-base';
 import { GAS_KPA, GAS_MMHG, GasWords, offThreshold } from './gas-words';
 import { readVenous } from './venous';
 import { allowanceAt, isAboveAlveolar, isAboveInspiredAt, isUnderAdultAge } from './gas-exchange';
@@ -803,9 +803,10 @@ function acidBaseText(cls: AcidBaseClassification, finding: ReadFinding, gas: Ga
  * reads it against (the union of them: hypoxaemia, severe hypoxaemia and the low normal PaO2;
  * hypercapnia, the normal PaCO2 range and hypocapnia), as the readings write it. A threshold the
  * value is on at the decimals it was written with (6.7 kPa on 50 mmHg) pushes nothing apart, as in
- * `GasWords.measured`. Null for any other value.
+ * `GasWords.measured`. A PaCO2 shown beside the PaCO2 expected for a metabolic disorder
+ * (`expected`, its range in mmHg) keeps its side of that range's ends too. Null for any other value.
  */
-export function gasAsReadingsShowIt(s: StatedValue, settings: Settings): { readonly kpa: string; readonly mmHg: string } | null {
+export function gasAsReadingsShowIt(s: StatedValue, settings: Settings, expected: { readonly low: number; readonly high: number } | null = null): { readonly kpa: string; readonly mmHg: string } | null {
   const v = s.value;
   if (v === null || s.word !== null || s.parts || (s.fieldId !== 'pao2' && s.fieldId !== 'paco2')) return null;
   const kpaShown = statedKpaNumber(s);
@@ -817,7 +818,10 @@ export function gasAsReadingsShowIt(s: StatedValue, settings: Settings): { reado
   const t2 = offThreshold(v, o2 ? SEVERE_HYPOXAEMIA_MMHG : UPPER_NORMAL_PACO2_MMHG, r);
   const t3 = offThreshold(v, o2 ? LOW_NORMAL_PAO2_MMHG : settings.hypocapniaBelowMmhg, r);
   const t4 = o2 ? NaN : offThreshold(v, PACO2_NORMAL_MMHG.low, r);
-  const mmHg = formatAgainst(v, writtenDecimals(mmhgShown), t1, t2, t3, t4);
+  // A PaCO2 beside the PaCO2 expected for a metabolic disorder (`expected`, the derived range in
+  // mmHg) and those ends take decimals that keep them apart (`paco2ApartFromRange`).
+  const apart = expected === null || !(r > 0) ? 0 : paco2ApartFromRange(v, r, expected);
+  const mmHg = formatNumber(v, Math.max(decimalsAgainst(v, writtenDecimals(mmhgShown), t1, t2, t3, t4), apart));
   const kpa = formatAgainst(kpaFromMmhg(v), writtenDecimals(kpaShown), kpaFromMmhg(t1), kpaFromMmhg(t2), kpaFromMmhg(t3), kpaFromMmhg(t4));
   return { kpa, mmHg };
 }

@@ -160,25 +160,52 @@ function namingEndExpiratory(template: string, peep: Term): string | undefined {
   return peep.name === 'PEEP' ? undefined : template.replace('{PEEP}', `{${peep.name}}`);
 }
 
+/** A formula template with the elastic base (`elasticBase`) named as it is made: undefined for the set PEEP (the definition's own template). */
+function namingElasticBase(template: string, base: ElasticBase): string | undefined {
+  return base.named === '{PEEP}' ? undefined : template.replace('{PEEP}', base.named);
+}
+
 function formulaExtras(template: string, peep: Term): ValueExtras | undefined {
   const formula = namingEndExpiratory(template, peep);
   return formula === undefined ? undefined : { formula };
 }
 
 /**
- * The end-expiratory pressure the elastic pressure of a breath is measured from: the total PEEP of an
- * end-expiratory hold where one is written at this timepoint (a reading: the set PEEP plus any
- * intrinsic PEEP), else the PEEP in force (`peepLike`). Plateau − total PEEP is the pressure across
- * the respiratory system at the end of inspiration above that at the end of expiration. Read (December
- * 2026, session 31): driving pressure as the plateau pressure less the end-expiratory pressure of the
- * respiratory system, in the abstract of a 2018 review at pmc.ncbi.nlm.nih.gov/articles/PMC6212354, and
- * as Pplat − PEEP or VT / Crs in table 1 of a 2020 review at PMC7449829; that an end-expiratory hold
- * measures that pressure (the total PEEP) is common practice, no source; which PEEP Amato 2015 meant
- * is not read (from memory).
+ * The end-expiratory pressure the elastic pressure of a breath is measured from, with the terms it
+ * is made of and how a formula names it (`{PEEPtot}`, `({PEEP} + {PEEPi})`, `{PEEP}`, `{EPAP}`,
+ * `{CPAP}`): the total PEEP of an end-expiratory hold where one is written at this timepoint (a
+ * reading: the set PEEP plus any intrinsic PEEP); else, where an intrinsic PEEP is written at this
+ * timepoint (a reading of the same hold, `autopeep`) and a ventilator's set PEEP is in force, their
+ * sum, which in a passive patient is the total PEEP the hold measured (respiratory mechanics:
+ * total PEEP = set PEEP + intrinsic PEEP; common practice, no source); else the PEEP in force
+ * (`peepLike`). Not the EPAP or CPAP level plus an intrinsic PEEP: an end-expiratory hold is a
+ * ventilator's manoeuvre. Plateau − total PEEP is the pressure across the respiratory system at the
+ * end of inspiration above that at the end of expiration. Read (December 2026, session 31): driving
+ * pressure as the plateau pressure less the end-expiratory pressure of the respiratory system, in the
+ * abstract of a 2018 review at pmc.ncbi.nlm.nih.gov/articles/PMC6212354, and as Pplat − PEEP or
+ * VT / Crs in table 1 of a 2020 review at PMC7449829; which PEEP Amato 2015 meant is not read (from
+ * memory).
  */
-function elasticBase(c: DeriveContext): Term | null {
-  return c.field('peep_total', 'PEEPtot') ?? c.peepLike();
+function elasticBase(c: DeriveContext): ElasticBase | null {
+  const total = c.field('peep_total', 'PEEPtot');
+  if (total) return { value: total.value, terms: [total], named: '{PEEPtot}' };
+  const set = c.field('peep', 'PEEP');
+  const intrinsic = set ? c.field('autopeep', 'PEEPi') : null;
+  if (set && intrinsic) return { value: set.value + intrinsic.value, terms: [set, intrinsic], named: SET_PLUS_INTRINSIC };
+  const peep = c.peepLike();
+  return peep ? { value: peep.value, terms: [peep], named: `{${peep.name}}` } : null;
 }
+
+/** An end-expiratory pressure for the elastic pressure of a breath (`elasticBase`). */
+interface ElasticBase {
+  readonly value: number;
+  readonly terms: readonly Term[];
+  /** How a formula names it, in braces: `{PEEP}` or `({PEEP} + {PEEPi})`. */
+  readonly named: string;
+}
+
+/** The total PEEP as the set PEEP plus the intrinsic PEEP of a hold, as a formula names it. */
+const SET_PLUS_INTRINSIC = '({PEEP} + {PEEPi})';
 
 const LUNG_PROTECTIVE_NOTES: readonly string[] = ['lung-protective target 6 mL/kg (4–8) in the ARDS Network protocol'];
 const OSCILLATION_VOLUME_NOTES: readonly string[] = ['in HFOV the volume of one oscillation, not compared with the lung-protective range of conventional breaths'];
@@ -191,7 +218,7 @@ export const drivingPressureDef = defineDerived({
   decimals: 0,
   category: 'mechanics',
   formula: '{Pplat} − {PEEP}',
-  otherFormulas: ['{Pplat} − {PEEPtot}'],
+  otherFormulas: ['{Pplat} − {PEEPtot}', `{Pplat} − ${SET_PLUS_INTRINSIC}`],
   source: SOURCES['amato-2015'],
   anchors: ['plateau'],
   compute(c) {
@@ -204,8 +231,8 @@ export const drivingPressureDef = defineDerived({
     const dp = drivingPressure(plat.value, peep.value);
     // Shown beside the 15 cmH2O flag (PN405): 15.4 as 15.4, not as 15 next to "above 15".
     const decimals = dp === null ? undefined : decimalsAgainst(dp, 0, DRIVING_PRESSURE_FLAG_CMH2O);
-    const formula = namingEndExpiratory('{Pplat} − {PEEP}', peep);
-    return c.value(dp, [plat, peep], formula === undefined ? withDecimals(decimals) : { decimals, formula });
+    const formula = namingElasticBase('{Pplat} − {PEEP}', peep);
+    return c.value(dp, [plat, ...peep.terms], formula === undefined ? withDecimals(decimals) : { decimals, formula });
   },
 });
 
@@ -217,7 +244,7 @@ export const complianceStaticDef = defineDerived({
   decimals: 0,
   category: 'mechanics',
   formula: '{VT} ÷ ({Pplat} − {PEEP})',
-  otherFormulas: ['{VT} ÷ ({Pplat} − {PEEPtot})'],
+  otherFormulas: ['{VT} ÷ ({Pplat} − {PEEPtot})', `{VT} ÷ ({Pplat} − ${SET_PLUS_INTRINSIC})`],
   source: SOURCES['respiratory-mechanics'],
   anchors: ['plateau'],
   compute(c) {
@@ -228,7 +255,8 @@ export const complianceStaticDef = defineDerived({
     if (hfov) return hfov;
     const peep = elasticBase(c);
     if (!vt || !peep) return c.missing([vt, c.need('vt')], [peep, c.peepNeed()]);
-    return c.value(complianceStatic(vt.value, plat.value, peep.value), [vt, plat, peep], formulaExtras('{VT} ÷ ({Pplat} − {PEEP})', peep));
+    const formula = namingElasticBase('{VT} ÷ ({Pplat} − {PEEP})', peep);
+    return c.value(complianceStatic(vt.value, plat.value, peep.value), [vt, plat, ...peep.terms], formula === undefined ? undefined : { formula });
   },
 });
 
@@ -248,10 +276,44 @@ export const complianceDynamicDef = defineDerived({
     if (!peak) return { kind: 'na', reason: 'needs a peak pressure' };
     const hfov = c.oscillationBreath();
     if (hfov) return hfov;
+    const own = ownEffort(c);
+    if (own) return own;
     const peep = c.peepLike();
     if (!vt || !peep) return c.missing([vt, c.need('vt')], [peep, c.peepNeed()]);
     return c.value(complianceDynamic(vt.value, peak.value, peep.value), [vt, peak, peep], formulaExtras('{VT} ÷ ({Ppeak} − {PEEP})', peep));
   },
+});
+
+/**
+ * Why the dynamic compliance is not worked out where the breaths in force are the patient's own
+ * (the spontaneous family: `mode PS`, `mode CPAP`, or with no mode NIV or CPAP of the oxygen line,
+ * fields/modes.ts `familyInForce`); null elsewhere. VT ÷ (Ppeak − PEEP) is the respiratory
+ * system's compliance only where the ventilator alone moves the volume: with the patient's own
+ * inspiratory effort the volume is drawn in by muscle pressure that the airway pressure does not
+ * show, so the quotient is higher than the compliance by an unknown amount, and under CPAP, where
+ * the airway pressure barely rises, it has no meaning at all (respiratory mechanics, common
+ * practice, no source). Withheld rather than shown with a caveat: a number named compliance would
+ * go into the exports, the trends and the checks with nothing to say it is not one; the hover and
+ * `show` say why where it would have been, and ask for no tidal volume to get it.
+ */
+function ownEffort(c: DeriveContext): Outcome | null {
+  const mode = c.word('mode');
+  if (mode !== null) {
+    if (modeFamily(mode.word) !== 'spontaneous') return null;
+    return mode.word.toUpperCase() === 'CPAP' ? OWN_EFFORT.cpap : OWN_EFFORT.ps;
+  }
+  const support = c.noninvasiveSupport();
+  return support === null ? null : OWN_EFFORT[support];
+}
+
+const ownEffortBecause = (endExpiratory: string): string =>
+  `the patient's own inspiratory effort draws in part of the volume, which the airway pressure does not show, so VT ÷ (Ppeak − ${endExpiratory}) is higher than the respiratory system's compliance by an unknown amount; a plateau of a passive breath (an inspiratory hold) gives the static compliance`;
+
+/** The reasons of `ownEffort`, one per kind of spontaneous breathing, made once. */
+const OWN_EFFORT: Readonly<Record<'ps' | 'cpap' | 'niv', Outcome>> = Object.freeze({
+  ps: { kind: 'na', reason: `not worked out under pressure support: ${ownEffortBecause('PEEP')}`, explained: true },
+  niv: { kind: 'na', reason: `not worked out under NIV: ${ownEffortBecause('EPAP')}`, explained: true },
+  cpap: { kind: 'na', reason: "not worked out under CPAP: the patient breathes at one set pressure, which barely rises in inspiration, and draws the volume in by their own effort, so VT ÷ (Ppeak − CPAP) is no compliance of the respiratory system", explained: true },
 });
 
 export const airwayResistanceDef = defineDerived({

@@ -63,6 +63,12 @@ export interface DerivedValue {
   readonly usesCarried: boolean;
   /** The line the value belongs to (its anchor input's line), for hints. */
   readonly line: number | null;
+  /**
+   * Decimals of the value (or a range's ends) in kPa where it is a gas pressure shown in kPa first,
+   * instead of the unit's one: an expected PaCO2's ends keep the PaCO2 on the side its reading puts it
+   * (`GasWords.rangeDecimals`). Null: the unit's own (`KPA_DECIMALS`).
+   */
+  readonly kpaDecimals: number | null;
 }
 
 /**

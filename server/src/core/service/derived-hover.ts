@@ -24,9 +24,11 @@ export function numberText(d: DerivedValue): string {
   return d.range ? `${formatNumber(d.range.low, d.decimals)}–${formatNumber(d.range.high, d.decimals)}` : formatNumber(d.value, d.decimals);
 }
 
-/** The same in kPa (a gas pressure). */
+/** The same in kPa (a gas pressure), with the value's own kPa decimals where it has them (an expected range's ends beside the PaCO2). */
 export function kpaText(d: DerivedValue): string {
-  return d.range ? `${kpaNumber(d.range.low)}–${kpaNumber(d.range.high)}` : kpaNumber(d.value);
+  const places = d.kpaDecimals;
+  const kpa = (mmHg: number): string => (places === null ? kpaNumber(mmHg) : formatNumber(kpaFromMmhg(mmHg), places));
+  return d.range ? `${kpa(d.range.low)}–${kpa(d.range.high)}` : kpa(d.value);
 }
 
 /** Whether a derived value is a gas pressure shown in kPa first at this timepoint. */

@@ -79,6 +79,21 @@ export function formatAgainst(value: number, decimals: number, t1: number, t2 = 
   return formatNumber(value, decimalsAgainst(value, decimals, t1, t2, t3, t4));
 }
 
+/**
+ * Decimals (from `decimals`, 6 at most) at which `value` and `end`, both shown with them, are in the
+ * order they are in (NaN `end`: none to keep apart): a PaCO2 of 26.10 mmHg and the end 26.05 of a
+ * range it is above show as 26.10 and 26.05, not both as 26.1 (or 26). Both numbers are shown with
+ * the decimals this gives, so neither is read on the other side of the other.
+ */
+export function decimalsApart(value: number, decimals: number, end: number): number {
+  if (Number.isNaN(end) || !Number.isFinite(value)) return decimals;
+  const side = Math.sign(Math.round((end - value) * 1e9));
+  for (let d = decimals; d < 6; d++) {
+    if (Math.sign(Number(formatNumber(end, d)) - Number(formatNumber(value, d))) === side) return d;
+  }
+  return Math.max(decimals, 6);
+}
+
 /** `low–high`, both ends with one number of decimals: the fewest that keep `observed` on its side of each. */
 export function rangeAgainst(low: number, high: number, decimals: number, observed: number): string {
   const d = Math.max(decimalsAgainst(low, decimals, observed), decimalsAgainst(high, decimals, observed));
