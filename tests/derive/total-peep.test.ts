@@ -160,3 +160,15 @@ describe('the total PEEP as set + intrinsic PEEP where no total is written', () 
     expect(f.map((x) => x.message)).toEqual(['Plateau pressure 11 cmH2O equals the set PEEP plus intrinsic PEEP with a tidal volume of 380 mL: a breath delivered with no rise in pressure, which no respiratory system allows; consistent with a transcription error in the plateau, the set PEEP or the intrinsic PEEP.']);
   });
 });
+
+describe('PN405 names the end-expiratory pressure the driving pressure took', () => {
+  // Driving pressure above 15 cmH2O (common practice, no source; Amato et al., NEJM 2015, for driving
+  // pressure and survival). 27 − 8 = 19, 30 − 12 = 18, 30 − (8 + 4) = 18 cmH2O.
+  const pn405 = (text: string) => checkNote(text).findings.filter((f) => f.code === 'PN405').map((f) => f.message);
+
+  it('the PEEP, a total PEEP of a hold, or the set plus intrinsic PEEP', () => {
+    expect(pn405('@ 08:00\nvent mode VC, vt 450, rate 16, peep 8, plateau 27')).toEqual(['Driving pressure is 19 cmH2O (plateau − PEEP), above 15 cmH2O.']);
+    expect(pn405('@ 08:00\nvent mode VC, vt 450, rate 16, peep 8, peep_total 12, plateau 30')).toEqual(['Driving pressure is 18 cmH2O (plateau − total PEEP), above 15 cmH2O.']);
+    expect(pn405('@ 08:00\nvent mode VC, vt 450, rate 16, peep 8, autopeep 4, plateau 30')).toEqual(['Driving pressure is 18 cmH2O (plateau − (set PEEP + intrinsic PEEP)), above 15 cmH2O.']);
+  });
+});

@@ -32,7 +32,7 @@ import { modeFamily } from '../fields/modes';
 const CEILING = COMPLIANCE_CEILING_ML_PER_CMH2O;
 
 /** The input of a derived value that is the end-expiratory pressure: PEEP, EPAP or CPAP as its line names it, or the total PEEP. */
-function endExpiratoryName(d: DerivedValue): string {
+export function endExpiratoryName(d: DerivedValue): string {
   // The set PEEP plus the intrinsic PEEP of a hold (derive/mechanics.ts `elasticBase`): both named.
   if (d.inputs.some((t) => t.name === 'PEEPi')) return 'set PEEP plus intrinsic PEEP';
   const name = d.inputs.find((t) => t.name !== 'Pplat' && t.name !== 'Ppeak' && t.name !== 'VT')?.name ?? 'PEEP';

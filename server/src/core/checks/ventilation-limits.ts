@@ -3,6 +3,8 @@ import { DRIVING_PRESSURE_FLAG_CMH2O, LUNG_PROTECTIVE_VT_MAX_ML_PER_KG, PLATEAU_
 import { toRange } from '../syntax/tree';
 import { formatAgainst, writtenDecimals } from '../util/format';
 import { derivedValueOf } from '../derive/registry';
+import type { DerivedValue } from '../derive/model';
+import { endExpiratoryName } from './compliance-reach';
 import { defineCheck, type TimepointContext } from './check';
 import { inHfov } from './oscillation';
 
@@ -10,18 +12,25 @@ import { inHfov } from './oscillation';
 const VT_PER_KG_LIMIT = LUNG_PROTECTIVE_VT_MAX_ML_PER_KG;
 const DRIVING_PRESSURE_LIMIT_CMH2O = DRIVING_PRESSURE_FLAG_CMH2O;
 
-function derivedAbove(ctx: TimepointContext, id: string, limit: number, anchorField: string, message: (v: number) => string): void {
+function derivedAbove(ctx: TimepointContext, id: string, limit: number, anchorField: string, message: (d: DerivedValue) => string): void {
   // The limits are of conventional breaths; an oscillator delivers none (HFOV).
   if (ctx.timepoint.values.originOf(anchorField) !== 'here' || inHfov(ctx)) return;
   const d = derivedValueOf(ctx.derivation, id);
   const anchor = ctx.timepoint.values.get(anchorField);
   if (!d || d.value <= limit + 1e-9 || !anchor || anchor.origin.kind !== 'here') return;
-  ctx.report({ range: toRange(anchor.stated.line, anchor.stated.item.span), message: message(d.value) });
+  ctx.report({ range: toRange(anchor.stated.line, anchor.stated.item.span), message: message(d) });
 }
 
 // The messages are made once, not as a closure per timepoint (a big note has thousands).
-const tidalVolumeMessage = (v: number): string => `Tidal volume is ${formatAgainst(v, 1, VT_PER_KG_LIMIT)} mL/kg predicted body weight, above the ${VT_PER_KG_LIMIT} mL/kg top of the lung-protective range.`;
-const drivingPressureMessage = (v: number): string => `Driving pressure is ${formatAgainst(v, 0, DRIVING_PRESSURE_LIMIT_CMH2O)} cmH2O (plateau − PEEP), above ${DRIVING_PRESSURE_LIMIT_CMH2O} cmH2O.`;
+const tidalVolumeMessage = ({ value: v }: DerivedValue): string => `Tidal volume is ${formatAgainst(v, 1, VT_PER_KG_LIMIT)} mL/kg predicted body weight, above the ${VT_PER_KG_LIMIT} mL/kg top of the lung-protective range.`;
+// The end-expiratory pressure is named as the driving pressure took it (derive/mechanics.ts
+// `elasticBase`): the PEEP, a total PEEP of a hold, the set plus intrinsic PEEP, an EPAP.
+const drivingPressureMessage = (d: DerivedValue): string => `Driving pressure is ${formatAgainst(d.value, 0, DRIVING_PRESSURE_LIMIT_CMH2O)} cmH2O (plateau − ${baseShown(d)}), above ${DRIVING_PRESSURE_LIMIT_CMH2O} cmH2O.`;
+
+/** `PEEP`, `total PEEP`, `EPAP`, or `(set PEEP + intrinsic PEEP)` where the two were summed. */
+function baseShown(d: DerivedValue): string {
+  return d.inputs.some((t) => t.name === 'PEEPi') ? '(set PEEP + intrinsic PEEP)' : endExpiratoryName(d);
+}
 
 export const tidalVolumeHigh = defineCheck({
   code: 'PN403',
@@ -67,7 +76,7 @@ export const drivingPressureHigh = defineCheck({
   severity: 'warning',
   tags: ['physiology'],
   doc: {
-    fires: `The driving pressure (plateau − PEEP) is above ${DRIVING_PRESSURE_LIMIT_CMH2O} cmH2O, where higher driving pressures were associated with lower survival. Not in HFOV, where driving pressure is not worked out: an oscillator gives no conventional breath with a plateau.`,
+    fires: `The driving pressure (plateau − PEEP; the total PEEP of a hold, or the set plus intrinsic PEEP, where written, and the message names which) is above ${DRIVING_PRESSURE_LIMIT_CMH2O} cmH2O, where higher driving pressures were associated with lower survival. Not in HFOV, where driving pressure is not worked out: an oscillator gives no conventional breath with a plateau.`,
     example: '@ 08:00\nvent peep 8, plateau 27',
     fix: 'Confirm plateau and PEEP; a clinical review decides what follows.',
   },
