@@ -24,7 +24,7 @@ describe('a base excess that does not agree with its gas (PN415)', () => {
     // ABE(17) 0.762 × (−0.7 + 32.01 × 0.02) = −0.046; accepted −3.3 to +3.0; −8 is outside.
     const text = '@ 08:00\nabg 7.42/37/90/24.1, be -8';
     expect(messages(text)).toEqual([
-      'Base excess −8 mmol/L does not agree with pH 7.42 and HCO3 24.1 mmol/L (expected about −0.3 to 0.0 mmol/L from the Van Slyke equation over Hb 7–17 g/dL, give or take 3)',
+      'Base excess −8 mmol/L does not agree with pH 7.42 and HCO3 24.1 mmol/L (expected about −0.3 to 0.0 mmol/L from the Van Slyke equation over Hb 7–17 g/dL, give or take 3).',
     ]);
     const [f] = found(text);
     expect(f!.severity).toBe('warning');
@@ -85,10 +85,11 @@ describe('a base excess that does not agree with its gas (PN415)', () => {
   it('a venous base excess is checked against the venous pH and HCO3, never against an arterial gas beside it', () => {
     // Venous pH 7.32, HCO3 25: SBE 0.93 × (0.6 − 1.184) = −0.54; ABE(7) 0.902 × (0.2 − 17.71 × 0.08) = −1.10,
     // ABE(17) 0.762 × (0.2 − 32.01 × 0.08) = −1.80. All negative: +8 has the opposite sign, but −8 is
-    // beyond −4.8 too, so no quick fix.
+    // beyond −4.8 too, so no quick fix; and with up to +2.5 accepted (−0.5 + 3) the gas is expected
+    // near 0, not clearly a deficit, so no word of a lost sign either.
     const text = '@ 08:00\nvbg 7.32/50/40/25, be 8';
     expect(messages(text)).toEqual([
-      'Base excess 8 mmol/L does not agree with venous pH 7.32 and HCO3 25.0 mmol/L (expected about −1.8 to −0.5 mmol/L from the Van Slyke equation over Hb 7–17 g/dL, give or take 3): a base deficit written as a positive excess?',
+      'Base excess 8 mmol/L does not agree with venous pH 7.32 and HCO3 25.0 mmol/L (expected about −1.8 to −0.5 mmol/L from the Van Slyke equation over Hb 7–17 g/dL, give or take 3).',
     ]);
     expect(found(text)[0]!.related!.map((r) => r.message)).toEqual(['venous pH of the gas', 'venous HCO3 of the gas']);
     expect(quickFixes(text, found(text)[0]!)).toEqual([]);

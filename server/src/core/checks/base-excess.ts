@@ -18,7 +18,7 @@ export const baseExcessDisagrees = defineCheck({
   severity: 'warning',
   tags: ['physiology'],
   doc: {
-    fires: `A base excess stated on a gas line lies more than ${BASE_EXCESS_TOLERANCE_MMOL_L} mmol/L outside the span from the lowest to the highest of the standard base excess and the actual base excess that the pH and HCO3 of the same gas give by the Van Slyke equation: the actual one at the Hb stated (on the gas line, else at the timepoint), or over every Hb from ${BASE_EXCESS_HB_SPAN_G_DL.low} to ${BASE_EXCESS_HB_SPAN_G_DL.high} g/dL when none is. A venous base excess is checked against the venous pH and HCO3, never against an arterial gas beside it. The message says when the base excess has the sign opposite to the one expected (a base deficit written as a positive excess), and where the other sign agrees a quick fix writes it.`,
+    fires: `A base excess stated on a gas line lies more than ${BASE_EXCESS_TOLERANCE_MMOL_L} mmol/L outside the span from the lowest to the highest of the standard base excess and the actual base excess that the pH and HCO3 of the same gas give by the Van Slyke equation: the actual one at the Hb stated (on the gas line, else at the timepoint), or over every Hb from ${BASE_EXCESS_HB_SPAN_G_DL.low} to ${BASE_EXCESS_HB_SPAN_G_DL.high} g/dL when none is. A venous base excess is checked against the venous pH and HCO3, never against an arterial gas beside it. The message says when the base excess has the sign opposite to every value accepted, the tolerance included (a base deficit written as a positive excess; not where the gas is expected near 0), and where the other sign agrees a quick fix writes it.`,
     example: '@ 08:00\nabg 7.20/38/90/14, be 12',
     fix: 'Check the base excess against the analyser print-out: its sign (a base deficit is a negative excess), and that it belongs to this gas. The hover of the HCO3 shows the standard base excess its pH and HCO3 give (`sbe`).',
   },
@@ -79,7 +79,7 @@ function checkBaseExcess(ctx: TimepointContext, be: StatedValue, gas: GasFields)
   const written = be.item.value?.kind === 'number' ? writtenDecimals(be.item.value.text) : 1;
   let message = `Base excess ${signed(formatAgainst(value, written, low, high), false)} mmol/L does not agree with ${gas.words}pH ${formatNumber(ph.value!, 2)} and HCO3 ${formatNumber(hco3.value!, 1)} mmol/L (expected about ${spanText(span)} mmol/L from the Van Slyke equation ${over}, give or take ${BASE_EXCESS_TOLERANCE_MMOL_L})`;
   const sign = oppositeSign(value, span);
-  if (sign !== null) message += `: ${sign}`;
+  message += sign === null ? '.' : `: ${sign}`;
   ctx.report({
     range: toRange(be.line, be.item.value?.span ?? be.item.span),
     message,
@@ -102,10 +102,15 @@ function spanText(span: NumericRange): string {
   return `${signed(formatNumber(span.low, 1), true)} to ${signed(formatNumber(span.high, 1), true)}`;
 }
 
-/** Words for a base excess whose sign is opposite to that of every value of the span; null where the span holds 0 or the signs match. */
+/**
+ * Words for a base excess whose sign is opposite to that of every value the span accepts, its
+ * tolerance included; null where the accepted values reach 0 or the signs match. A gas whose base
+ * excess is expected near 0 (−1.8 to −0.5, so up to +1.2 accepted) does not make a written +8 a
+ * deficit with its sign lost: that hint is kept for a gas that is clearly of the other sign.
+ */
 function oppositeSign(value: number, span: NumericRange): string | null {
-  if (value > 0 && span.high < 0) return 'a base deficit written as a positive excess?';
-  if (value < 0 && span.low > 0) return 'a positive excess written as a base deficit?';
+  if (value > 0 && span.high + BASE_EXCESS_TOLERANCE_MMOL_L < 0) return 'a base deficit written as a positive excess?';
+  if (value < 0 && span.low - BASE_EXCESS_TOLERANCE_MMOL_L > 0) return 'a positive excess written as a base deficit?';
   return null;
 }
 
