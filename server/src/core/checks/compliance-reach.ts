@@ -33,21 +33,25 @@ const CEILING = COMPLIANCE_CEILING_ML_PER_CMH2O;
 
 /** The input of a derived value that is the end-expiratory pressure: PEEP, EPAP or CPAP as its line names it, or the total PEEP. */
 export function endExpiratoryName(d: DerivedValue): string {
-  // The set PEEP plus the intrinsic PEEP of a hold (derive/mechanics.ts `elasticBase`): both named.
-  if (d.inputs.some((t) => t.name === 'PEEPi')) return 'set PEEP plus intrinsic PEEP';
+  if (setPlusIntrinsic(d)) return 'set PEEP plus intrinsic PEEP';
   const name = d.inputs.find((t) => t.name !== 'Pplat' && t.name !== 'Ppeak' && t.name !== 'VT')?.name ?? 'PEEP';
   // A total PEEP of an end-expiratory hold (derive/mechanics.ts `elasticBase`) is named in words.
   return name === 'PEEPtot' ? 'total PEEP' : name;
 }
 
+/** Whether `d` took the set PEEP plus the intrinsic PEEP of a hold (derive/mechanics.ts `elasticBase`), so that a message names both. */
+export function setPlusIntrinsic(d: DerivedValue): boolean {
+  return d.inputs.some((t) => t.name === 'PEEPi');
+}
+
 /** The end-expiratory pressure as a place a transcription error may be, in a list: `set PEEP, the intrinsic PEEP` where the two were summed. */
 function suspectName(d: DerivedValue): string {
-  return d.inputs.some((t) => t.name === 'PEEPi') ? 'set PEEP, the intrinsic PEEP' : endExpiratoryName(d);
+  return setPlusIntrinsic(d) ? 'set PEEP, the intrinsic PEEP' : endExpiratoryName(d);
 }
 
 /** `the plateau or the PEEP`, or where the set and intrinsic PEEP were summed `the plateau, the set PEEP or the intrinsic PEEP`. */
 function plateauOrBase(d: DerivedValue): string {
-  return d.inputs.some((t) => t.name === 'PEEPi') ? 'the plateau, the set PEEP or the intrinsic PEEP' : `the plateau or the ${endExpiratoryName(d)}`;
+  return setPlusIntrinsic(d) ? 'the plateau, the set PEEP or the intrinsic PEEP' : `the plateau or the ${endExpiratoryName(d)}`;
 }
 
 /** A formula with its numbers, without its result: `450 ÷ (12 − 10)` of `450 ÷ (12 − 10) = 225 mL/cmH2O`. */

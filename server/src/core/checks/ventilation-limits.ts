@@ -4,7 +4,7 @@ import { toRange } from '../syntax/tree';
 import { formatAgainst, writtenDecimals } from '../util/format';
 import { derivedValueOf } from '../derive/registry';
 import type { DerivedValue } from '../derive/model';
-import { endExpiratoryName } from './compliance-reach';
+import { endExpiratoryName, setPlusIntrinsic } from './compliance-reach';
 import { defineCheck, type TimepointContext } from './check';
 import { inHfov } from './oscillation';
 
@@ -29,7 +29,7 @@ const drivingPressureMessage = (d: DerivedValue): string => `Driving pressure is
 
 /** `PEEP`, `total PEEP`, `EPAP`, or `(set PEEP + intrinsic PEEP)` where the two were summed. */
 function baseShown(d: DerivedValue): string {
-  return d.inputs.some((t) => t.name === 'PEEPi') ? '(set PEEP + intrinsic PEEP)' : endExpiratoryName(d);
+  return setPlusIntrinsic(d) ? '(set PEEP + intrinsic PEEP)' : endExpiratoryName(d);
 }
 
 export const tidalVolumeHigh = defineCheck({

@@ -152,21 +152,17 @@ export const vtPerKg = defineDerived({
 });
 
 /**
- * A formula template with the end-expiratory pressure in force named as its line names it: PEEP on
- * the ventilator, EPAP on NIV, the CPAP level on CPAP (`peepLike`); undefined for PEEP (the
- * definition's own template serves).
+ * A formula template with its end-expiratory pressure named as it was taken (`named`, in braces):
+ * PEEP on the ventilator, EPAP on NIV, the CPAP level on CPAP (`peepLike`), or the total PEEP of a
+ * hold or the set plus intrinsic PEEP (`elasticBase`); undefined for `{PEEP}` (the definition's own
+ * template serves).
  */
-function namingEndExpiratory(template: string, peep: Term): string | undefined {
-  return peep.name === 'PEEP' ? undefined : template.replace('{PEEP}', `{${peep.name}}`);
+function namingEndExpiratory(template: string, named: string): string | undefined {
+  return named === '{PEEP}' ? undefined : template.replace('{PEEP}', named);
 }
 
-/** A formula template with the elastic base (`elasticBase`) named as it is made: undefined for the set PEEP (the definition's own template). */
-function namingElasticBase(template: string, base: ElasticBase): string | undefined {
-  return base.named === '{PEEP}' ? undefined : template.replace('{PEEP}', base.named);
-}
-
-function formulaExtras(template: string, peep: Term): ValueExtras | undefined {
-  const formula = namingEndExpiratory(template, peep);
+function formulaExtras(template: string, named: string): ValueExtras | undefined {
+  const formula = namingEndExpiratory(template, named);
   return formula === undefined ? undefined : { formula };
 }
 
@@ -231,7 +227,7 @@ export const drivingPressureDef = defineDerived({
     const dp = drivingPressure(plat.value, peep.value);
     // Shown beside the 15 cmH2O flag (PN405): 15.4 as 15.4, not as 15 next to "above 15".
     const decimals = dp === null ? undefined : decimalsAgainst(dp, 0, DRIVING_PRESSURE_FLAG_CMH2O);
-    const formula = namingElasticBase('{Pplat} − {PEEP}', peep);
+    const formula = namingEndExpiratory('{Pplat} − {PEEP}', peep.named);
     return c.value(dp, [plat, ...peep.terms], formula === undefined ? withDecimals(decimals) : { decimals, formula });
   },
 });
@@ -255,8 +251,7 @@ export const complianceStaticDef = defineDerived({
     if (hfov) return hfov;
     const peep = elasticBase(c);
     if (!vt || !peep) return c.missing([vt, c.need('vt')], [peep, c.peepNeed()]);
-    const formula = namingElasticBase('{VT} ÷ ({Pplat} − {PEEP})', peep);
-    return c.value(complianceStatic(vt.value, plat.value, peep.value), [vt, plat, ...peep.terms], formula === undefined ? undefined : { formula });
+    return c.value(complianceStatic(vt.value, plat.value, peep.value), [vt, plat, ...peep.terms], formulaExtras('{VT} ÷ ({Pplat} − {PEEP})', peep.named));
   },
 });
 
@@ -280,7 +275,7 @@ export const complianceDynamicDef = defineDerived({
     if (own) return own;
     const peep = c.peepLike();
     if (!vt || !peep) return c.missing([vt, c.need('vt')], [peep, c.peepNeed()]);
-    return c.value(complianceDynamic(vt.value, peak.value, peep.value), [vt, peak, peep], formulaExtras('{VT} ÷ ({Ppeak} − {PEEP})', peep));
+    return c.value(complianceDynamic(vt.value, peak.value, peep.value), [vt, peak, peep], formulaExtras('{VT} ÷ ({Ppeak} − {PEEP})', `{${peep.name}}`));
   },
 });
 
