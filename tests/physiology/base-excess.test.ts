@@ -1,12 +1,12 @@
 /**
- * Base excess by the Van Slyke equation as standardised: the standard base excess of the
- * extracellular fluid, SBE = 0.93 × (HCO3 − 24.4 + 14.8 × (pH − 7.40)), and the actual base excess
- * of blood, ABE = (1 − 0.014 × Hb) × (HCO3 − 24.8 + (1.43 × Hb + 7.7) × (pH − 7.40)), Hb in g/dL.
- * Source of both: CLSI C46-A2, Blood Gas and pH Analysis and Related Measurements, Approved
- * Guideline, Second Edition, 2009; Siggaard-Andersen O, The acid-base status of the blood, 4th
- * edition, 1974 (from memory; their general form, and the ABE against another standardisation, read in
- * the abstract of Lang & Zander 2002: tests/physiology/sources-read.test.ts). Every expected value is worked by hand from those forms, the
- * arithmetic beside it; the gases are invented.
+ * Base excess as the CLSI guideline has it: the standard base excess of the extracellular fluid,
+ * SBE = HCO3 − 24.8 + 16.2 × (pH − 7.40), and the actual base excess of blood,
+ * ABE = (1 − 0.014 × Hb) × (HCO3 − 24.8 + (1.43 × Hb + 7.7) × (pH − 7.40)), Hb in g/dL.
+ * Source of both: CLSI (NCCLS) C46-A, Blood Gas and pH Analysis and Related Measurements, Approved
+ * Guideline, 2001 (second edition C46-A2, 2009), read as the manuals of blood gas analysers give them
+ * (December 2026; where, in tests/physiology/sources-read.test.ts, with their general form and the ABE
+ * against another standardisation, Lang & Zander 2002). Every expected value is worked by hand from
+ * those forms, the arithmetic beside it; the gases are invented.
  */
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
@@ -19,18 +19,19 @@ import {
   standardBaseExcess,
 } from '../../server/src/core/physiology/acid-base';
 
-describe('standard base excess (Van Slyke, CLSI C46-A2 2009; Siggaard-Andersen 1974; from memory)', () => {
-  it('pH 7.40 with HCO3 24.4 is 0: 0.93 × (24.4 − 24.4 + 14.8 × 0) = 0', () => {
-    expect(standardBaseExcess(7.4, 24.4)).toBeCloseTo(0, 9);
+describe('standard base excess (CLSI C46-A 2001, as analysers\' manuals give it)', () => {
+  it('pH 7.40 with HCO3 24.8 is 0: 24.8 − 24.8 + 16.2 × 0 = 0; with HCO3 24.4, −0.4', () => {
+    expect(standardBaseExcess(7.4, 24.8)).toBeCloseTo(0, 9);
+    expect(standardBaseExcess(7.4, 24.4)).toBeCloseTo(-0.4, 9);
   });
-  it('pH 7.20, HCO3 14: 0.93 × (14 − 24.4 + 14.8 × (−0.20)) = 0.93 × (−10.4 − 2.96) = 0.93 × −13.36 = −12.42', () => {
-    expect(standardBaseExcess(7.2, 14)).toBeCloseTo(-12.4248, 4);
+  it('pH 7.20, HCO3 14: 14 − 24.8 + 16.2 × (−0.20) = −10.8 − 3.24 = −14.04', () => {
+    expect(standardBaseExcess(7.2, 14)).toBeCloseTo(-14.04, 9);
   });
-  it('pH 7.50, HCO3 32: 0.93 × (32 − 24.4 + 14.8 × 0.10) = 0.93 × (7.6 + 1.48) = 0.93 × 9.08 = +8.44', () => {
-    expect(standardBaseExcess(7.5, 32)).toBeCloseTo(8.4444, 4);
+  it('pH 7.50, HCO3 32: 32 − 24.8 + 16.2 × 0.10 = 7.2 + 1.62 = +8.82', () => {
+    expect(standardBaseExcess(7.5, 32)).toBeCloseTo(8.82, 9);
   });
-  it('pH 7.42, HCO3 24.1: 0.93 × (24.1 − 24.4 + 14.8 × 0.02) = 0.93 × (−0.3 + 0.296) = −0.0037', () => {
-    expect(standardBaseExcess(7.42, 24.1)).toBeCloseTo(-0.00372, 5);
+  it('pH 7.42, HCO3 24.1: 24.1 − 24.8 + 16.2 × 0.02 = −0.7 + 0.324 = −0.376', () => {
+    expect(standardBaseExcess(7.42, 24.1)).toBeCloseTo(-0.376, 9);
   });
   it('rises with pH and with HCO3, as an excess of base does', () => {
     fc.assert(
@@ -47,7 +48,7 @@ describe('standard base excess (Van Slyke, CLSI C46-A2 2009; Siggaard-Andersen 1
   });
 });
 
-describe('actual base excess, Hb in g/dL (Van Slyke, CLSI C46-A2 2009; Siggaard-Andersen 1974; from memory)', () => {
+describe('actual base excess, Hb in g/dL (CLSI C46-A 2001, as analysers\' manuals give it)', () => {
   it('pH 7.20, HCO3 14, Hb 10: (1 − 0.14) × (14 − 24.8 + (14.3 + 7.7) × (−0.20)) = 0.86 × (−10.8 − 4.4) = 0.86 × −15.2 = −13.07', () => {
     expect(actualBaseExcess(7.2, 14, 10)).toBeCloseTo(-13.072, 4);
   });
@@ -58,14 +59,15 @@ describe('actual base excess, Hb in g/dL (Van Slyke, CLSI C46-A2 2009; Siggaard-
     expect(actualBaseExcess(7.42, 24.1, 7)).toBeCloseTo(-0.31191, 4);
     expect(actualBaseExcess(7.42, 24.1, 17)).toBeCloseTo(-0.04557, 4);
   });
-  it('Hb in g/dL is the form that agrees with the SBE: at the ECF Hb of about 5 g/dL its factors are 1 − 0.014 × 5 = 0.93 and 1.43 × 5 + 7.7 = 14.85, so ABE(Hb 5) − SBE = 0.93 × (−0.4 + 0.05 × (pH − 7.40)), within 0.4 mmol/L (from the two forms, from memory)', () => {
+  it('shares the SBE\'s HCO3 at pH 7.40, 24.8: both are 0 there, whatever the Hb, and differ by Z and the buffer slope alone', () => {
     fc.assert(
-      fc.property(fc.double({ min: 6.8, max: 7.8, noNaN: true }), fc.double({ min: 2, max: 60, noNaN: true }), (ph, hco3) => {
-        const gap = actualBaseExcess(ph, hco3, 5)! - standardBaseExcess(ph, hco3)!;
-        expect(gap).toBeCloseTo(0.93 * (-0.4 + 0.05 * (ph - 7.4)), 6);
-        expect(Math.abs(gap)).toBeLessThan(0.4);
+      fc.property(fc.double({ min: 6.8, max: 7.8, noNaN: true }), fc.double({ min: 2, max: 60, noNaN: true }), fc.double({ min: 3, max: 20, noNaN: true }), (ph, hco3, hb) => {
+        const x = ph - 7.4;
+        expect(standardBaseExcess(ph, hco3)!).toBeCloseTo(hco3 - 24.8 + 16.2 * x, 9);
+        expect(actualBaseExcess(ph, hco3, hb)!).toBeCloseTo((1 - 0.014 * hb) * (hco3 - 24.8 + (1.43 * hb + 7.7) * x), 9);
       }),
     );
+    for (const hb of [5, 10, 15]) expect(actualBaseExcess(7.4, 24.8, hb)! - standardBaseExcess(7.4, 24.8)!).toBeCloseTo(0, 9);
   });
   it('is null for an Hb of 0 or less, or one above 50 g/dL', () => {
     expect(actualBaseExcess(7.4, 24, 0)).toBeNull();
@@ -75,15 +77,15 @@ describe('actual base excess, Hb in g/dL (Van Slyke, CLSI C46-A2 2009; Siggaard-
 });
 
 describe('the span of the two forms, and the tolerance (±3 mmol/L: common practice, no source)', () => {
-  it('with no Hb, spans the SBE and the ABE over Hb 7–17 g/dL: pH 7.42, HCO3 24.1 gives −0.31 to −0.004 (the values above)', () => {
+  it('with no Hb, spans the SBE and the ABE over Hb 7–17 g/dL: pH 7.42, HCO3 24.1 gives −0.376 to −0.046 (the values above)', () => {
     const span = baseExcessSpan(7.42, 24.1)!;
-    expect(span.low).toBeCloseTo(-0.31191, 4);
-    expect(span.high).toBeCloseTo(-0.00372, 4);
+    expect(span.low).toBeCloseTo(-0.376, 4);
+    expect(span.high).toBeCloseTo(-0.04557, 4);
   });
-  it('with a stated Hb, spans the SBE and the ABE at that Hb: pH 7.20, HCO3 14, Hb 10 gives −13.07 to −12.42', () => {
+  it('with a stated Hb, spans the SBE and the ABE at that Hb: pH 7.20, HCO3 14, Hb 10 gives −14.04 to −13.07', () => {
     const span = baseExcessSpan(7.2, 14, 10)!;
-    expect(span.low).toBeCloseTo(-13.072, 4);
-    expect(span.high).toBeCloseTo(-12.4248, 4);
+    expect(span.low).toBeCloseTo(-14.04, 4);
+    expect(span.high).toBeCloseTo(-13.072, 4);
   });
   it('holds the SBE and the ABE at every Hb of 7–17 g/dL, its turning point inside the span included', () => {
     fc.assert(

@@ -606,15 +606,15 @@ describe('the SpO2 targets Pneumark offers, against BTS 2017 and TSANZ 2015 as r
 // BE = Z × ((cHCO3 − cHCO3 at pH 7.4) + β × (pH − 7.4)), Z depending on the Hb only; the authors recommend
 // BE = (1 − 0.0143 × cHb) × ((0.0304 × PCO2 × 10^(pH − 6.1) − 24.26) + (9.5 + 1.63 × cHb) × (pH − 7.4))
 // − 0.2 × cHb × (1 − sO2), cHb in g/dL; the seven forms compared have mean errors of ±0.86 to ±1.50 mmol/L
-// against 148 reference samples. The constants of CLSI C46-A2 that Pneumark uses were not read.
+// against 148 reference samples. The constants of the CLSI forms Pneumark uses are read below (session 32).
 function zander2002AsRead(ph: number, hco3: number, hbGdl: number, so2: number): number {
   return (1 - 0.0143 * hbGdl) * (hco3 - 24.26 + (9.5 + 1.63 * hbGdl) * (ph - 7.4)) - 0.2 * hbGdl * (1 - so2);
 }
 
 describe('base excess: the Van Slyke form as read, and the actual base excess against the form Lang & Zander recommend', () => {
   it('both forms Pneumark uses are Z × ((HCO3 − its value at pH 7.40) + β × (pH − 7.40)): 0 at pH 7.40 and that HCO3, and Z per mmol/L of HCO3', () => {
-    expect(standardBaseExcess(7.4, 24.4)).toBeCloseTo(0, 12);
-    expect(standardBaseExcess(7.3, 20)! - standardBaseExcess(7.3, 19)!).toBeCloseTo(0.93, 12);
+    expect(standardBaseExcess(7.4, 24.8)).toBeCloseTo(0, 12);
+    expect(standardBaseExcess(7.3, 20)! - standardBaseExcess(7.3, 19)!).toBeCloseTo(1, 12);
     for (const hb of [7, 12, 17]) {
       expect(actualBaseExcess(7.4, 24.8, hb)).toBeCloseTo(0, 12);
       expect(actualBaseExcess(7.3, 20, hb)! - actualBaseExcess(7.3, 19, hb)!).toBeCloseTo(1 - 0.014 * hb, 12);
@@ -639,9 +639,52 @@ describe('base excess: the Van Slyke form as read, and the actual base excess ag
     expect(zander2002AsRead(7.4, 24.8, 15, 1)).toBeCloseTo((1 - 0.0143 * 15) * 0.54, 12);
   });
 
-  it('the citation says what was read and that the constants are still recalled', () => {
+  it('the citation says what was read', () => {
     expect(ACID_BASE['van-slyke-sbe']).toContain('Clin Chem Lab Med 2002;40(4):404–410');
-    expect(ACID_BASE['van-slyke-sbe']).toContain('constants from memory');
+  });
+});
+
+// The base excess of the CLSI guideline (C46-A, 2001; C46-A2, 2009, the standard itself not read), as read in
+// December 2026 (session 32) in the manuals of blood gas analysers that work it out by it: the OPTI CCA-TS
+// operator's manual (OPTI Medical), appendix A, page A-9, BE = (1 − 0.014 × tHb) × ((HCO3 − 24.8) + (1.43 ×
+// tHb + 7.7) × (pH − 7.4)) and BEecf = HCO3 − 24.8 + 16.2 × (pH − 7.4) for a tHb of 5 g/dL, reference CLSI
+// C46-A 2001; the ABL90 FLEX reference manual (Radiometer), page 8-24, equations 5 and 7, the same two forms,
+// "in accordance with NCCLS (CLSI)-approved guidelines" (both at easymanua.ls); the i15 user manual (Edan),
+// chapter 11, page 121, the same two, tHb by default 15 g/dL; and the ABE alone, zero at pH 7.40, PCO2 5.33 kPa
+// and Hb 15.0 g/dL, in a hospital laboratory's procedure for Siemens critical care analysers (version 2.00,
+// 2009, page 18, at manualu.com). The same SBE after Shapiro and coauthors 1989 in table 1 of PMC6090410.
+// Pneumark's SBE until then, 0.93 × (HCO3 − 24.4 + 14.8 × (pH − 7.40)), recalled as the standard's, was
+// not: it is replaced by the form read.
+const CLSI_SBE_AS_READ = (ph: number, hco3: number): number => hco3 - 24.8 + 16.2 * (ph - 7.4);
+const CLSI_ABE_AS_READ = (ph: number, hco3: number, hb: number): number => (1 - 0.014 * hb) * (hco3 - 24.8 + (1.43 * hb + 7.7) * (ph - 7.4));
+const SBE_USED_UNTIL_DECEMBER_2026 = (ph: number, hco3: number): number => 0.93 * (hco3 - 24.4 + 14.8 * (ph - 7.4));
+
+describe('base excess: the standard and the actual base excess against the CLSI forms as read in analysers\' manuals', () => {
+  it.each([[7.0, 5], [7.2, 14], [7.4, 24.8], [7.42, 24.1], [7.5, 32], [7.7, 50]])('pH %f, HCO3 %f: the SBE and the ABE (Hb 7, 10, 15, 17 g/dL) are the forms as read', (ph, hco3) => {
+    expect(standardBaseExcess(ph, hco3)!).toBeCloseTo(CLSI_SBE_AS_READ(ph, hco3), 12);
+    for (const hb of [7, 10, 15, 17]) expect(actualBaseExcess(ph, hco3, hb)!).toBeCloseTo(CLSI_ABE_AS_READ(ph, hco3, hb), 12);
+  });
+
+  it('the ABE is 0 at pH 7.40 and HCO3 24.8 with Hb 15.0 g/dL, as the laboratory procedure read gives it', () => {
+    expect(actualBaseExcess(7.4, 24.8, 15)).toBeCloseTo(0, 12);
+  });
+
+  it('the SBE Pneumark used before differs from the standard\'s by up to 2.7 mmol/L over pH 7.0–7.7 and HCO3 5–50 mmol/L', () => {
+    let largest = 0;
+    for (let ph = 7.0; ph <= 7.7 + 1e-9; ph += 0.01) {
+      for (let hco3 = 5; hco3 <= 50 + 1e-9; hco3 += 0.5) largest = Math.max(largest, Math.abs(SBE_USED_UNTIL_DECEMBER_2026(ph, hco3) - standardBaseExcess(ph, hco3)!));
+    }
+    expect(largest).toBeGreaterThan(2.7);
+    expect(largest).toBeLessThan(2.75);
+  });
+
+  it('the citation says where the forms were read, and what replaced what', () => {
+    const source = ACID_BASE['van-slyke-sbe'];
+    expect(source).toContain('OPTI CCA-TS');
+    expect(source).toContain('ABL90 FLEX');
+    expect(source).toContain('SBE = HCO3 − 24.8 + 16.2 × (pH − 7.40)');
+    expect(source).toContain('Until December 2026 Pneumark used 0.93 × (HCO3 − 24.4 + 14.8 × (pH − 7.40))');
+    expect(source).not.toContain('constants from memory');
   });
 });
 

@@ -301,7 +301,7 @@ export const standardBaseExcessDef = defineDerived({
   unit: 'mmol/L',
   decimals: 1,
   category: 'acid-base',
-  formula: '0.93 × ({HCO3} − 24.4 + 14.8 × ({pH} − 7.40))',
+  formula: '{HCO3} − 24.8 + 16.2 × ({pH} − 7.40)',
   source: SOURCES['van-slyke-sbe'],
   anchors: ['hco3'],
   compute(c) {
@@ -324,7 +324,7 @@ export const standardBaseExcessVenousDef = defineDerived({
   unit: 'mmol/L',
   decimals: 1,
   category: 'acid-base',
-  formula: '0.93 × ({HCO3(v)} − 24.4 + 14.8 × ({pH(v)} − 7.40))',
+  formula: '{HCO3(v)} − 24.8 + 16.2 × ({pH(v)} − 7.40)',
   source: SOURCES['van-slyke-sbe'],
   anchors: ['hco3_venous'],
   compute(c) {

@@ -42,7 +42,7 @@ export const SOURCES = Object.freeze({
   'kelly-2005':
     'Kelly AM, Kerr D, Middleton P. Validation of venous pCO2 to screen for arterial hypercarbia in patients with chronic obstructive airways disease. J Emerg Med 2005;28(4):377–379 (read in its abstract): a venous pCO2 above 45 mmHg caught all 43 patients whose arterial pCO2 was above 50 mmHg; none of the 30 with a venous pCO2 below 45 mmHg had one.',
   'van-slyke-sbe':
-    'Standard base excess (of the extracellular fluid) by the Van Slyke equation as standardised, SBE = 0.93 × (HCO3 − 24.4 + 14.8 × (pH − 7.40)) mmol/L, and the actual (blood) base excess, ABE = (1 − 0.014 × Hb) × (HCO3 − 24.8 + (1.43 × Hb + 7.7) × (pH − 7.40)) with Hb in g/dL: CLSI C46-A2, Blood Gas and pH Analysis and Related Measurements, Approved Guideline, Second Edition, 2009; Siggaard-Andersen O, The acid-base status of the blood, 4th edition, 1974, and Scand J Clin Lab Invest 1977;37(Suppl 146):15–20 (none of them read here: their citations and constants from memory). The general form, BE = Z × ((HCO3 − HCO3 at pH 7.40) + β × (pH − 7.40)) with Z depending on the Hb only, read in the abstract of Lang W, Zander R. The accuracy of calculated base excess in blood. Clin Chem Lab Med 2002;40(4):404–410 (metajournal.com), which compares the NCCLS form with Siggaard-Andersen\'s and recommends (1 − 0.0143 × Hb) × ((0.0304 × PCO2 × 10^(pH − 6.1) − 24.26) + (9.5 + 1.63 × Hb) × (pH − 7.40)) − 0.2 × Hb × (1 − sO2), Hb in g/dL; with the same HCO3, the ABE here stays within 2 mmol/L of that form in oxygenated blood (pH 7.0–7.7, HCO3 5–50 mmol/L, Hb 7–17 g/dL); against a reference set of 148 samples the abstract gives its seven forms mean errors of ±0.86 to ±1.50 mmol/L.',
+    'Standard base excess (of the extracellular fluid), SBE = HCO3 − 24.8 + 16.2 × (pH − 7.40) mmol/L, and the actual (blood) base excess, ABE = (1 − 0.014 × Hb) × (HCO3 − 24.8 + (1.43 × Hb + 7.7) × (pH − 7.40)) with Hb in g/dL: CLSI (formerly NCCLS) C46-A, Blood Gas and pH Analysis and Related Measurements, Approved Guideline, 2001, and its second edition C46-A2, 2009 (the standard not read here: both forms read as the standard\'s in the manuals of three blood gas analysers, December 2026: OPTI Medical\'s OPTI CCA-TS operator\'s manual, appendix A, page A-9, which names the standard of 2001 as its reference and the SBE as that of a Hb of 5 g/dL; Radiometer\'s ABL90 FLEX reference manual, chapter 8, page 8-24, equations 5 and 7, worked out as the NCCLS (CLSI) guideline has them; Edan\'s i15 user manual, chapter 11, page 121, its Hb by default 15 g/dL; copies of the first two at easymanua.ls; and the ABE alone, zero at pH 7.40, PCO2 5.33 kPa and Hb 15.0 g/dL, in a hospital laboratory\'s procedure for Siemens critical care analysers, version 2.00, 2009, page 18, in its copy at manualu.com). The same SBE, HCO3 − 24.8 + 16.2 × (pH − 7.40), after Shapiro and coauthors 1989, in table 1 of a 2018 study in Vet Med Sci (4(3):206–217, PMC6090410). Until December 2026 Pneumark used 0.93 × (HCO3 − 24.4 + 14.8 × (pH − 7.40)) for the SBE, recalled as the standard\'s: it is not the standard\'s form as read, and differs from it by up to about 2.7 mmol/L (pH 7.0–7.7, HCO3 5–50 mmol/L). Siggaard-Andersen O, The acid-base status of the blood, 4th edition, 1974 (not read here, from memory). The general form, BE = Z × ((HCO3 − HCO3 at pH 7.40) + β × (pH − 7.40)) with Z depending on the Hb only, read in the abstract of Lang W, Zander R. The accuracy of calculated base excess in blood. Clin Chem Lab Med 2002;40(4):404–410 (metajournal.com), which compares the NCCLS form with Siggaard-Andersen\'s and recommends (1 − 0.0143 × Hb) × ((0.0304 × PCO2 × 10^(pH − 6.1) − 24.26) + (9.5 + 1.63 × Hb) × (pH − 7.40)) − 0.2 × Hb × (1 − sO2), Hb in g/dL; with the same HCO3, the ABE here stays within 2 mmol/L of that form in oxygenated blood (pH 7.0–7.7, HCO3 5–50 mmol/L, Hb 7–17 g/dL); against a reference set of 148 samples the abstract gives its seven forms mean errors of ±0.86 to ±1.50 mmol/L.',
   'pneumark-base-excess-tolerance':
     'A stated base excess is accepted within ±3 mmol/L of the span from the lowest to the highest of the standard and the actual base excess (BASE_EXCESS_TOLERANCE_MMOL_L), the actual one over the stated Hb or, with none, over Hb 7–17 g/dL: common practice, no source; reasoning given beside the constants.',
   'pneumark-consistency-tolerance':
@@ -788,22 +788,19 @@ export function venousPco2Screen(pvco2Mmhg: number, resolutionMmhg = 0): VenousP
 
 /**
  * Base excess: the standard base excess of the extracellular fluid (SBE) and the actual base excess
- * of blood (ABE), both by the Van Slyke equation as standardised (`van-slyke-sbe`: the constants from
- * memory; the general form, and another standardisation the ABE is held against, read in December 2026).
+ * of blood (ABE), both as the CLSI guideline has them (`van-slyke-sbe`: read in December 2026 in
+ * the manuals of analysers that work them out by it; the general form, and another standardisation
+ * the ABE is held against, read then too).
  *
- * Hb units: the ABE form is pinned with Hb in g/dL. Some texts print it with ctHb in mmol/L (of
- * the monomer; 1 g/dL ≈ 0.6206 mmol/L). The g/dL reading is the one that agrees with the SBE form:
- * the SBE is the ABE of blood diluted into the extracellular fluid, whose Hb is about a third of
- * the blood's, about 5 g/dL (3 mmol/L); with Hb 5 in g/dL the ABE's factors are 1 − 0.014 × 5 =
- * 0.93 and 1.43 × 5 + 7.7 = 14.85, the SBE's 0.93 and 14.8, where Hb 3 in mmol/L would give 0.958
- * and 12.0. So a stated Hb, held in g/dL inside the core, is put in as it is.
+ * Hb units: the ABE form takes Hb in g/dL, as the manuals read give it (zero at Hb 15.0 g/dL; a
+ * default of 15 g/dL). Some texts print a form with ctHb in mmol/L (of the monomer; 1 g/dL ≈
+ * 0.6206 mmol/L) and other constants. A stated Hb, held in g/dL inside the core, is put in as it is.
  */
 
-/** pH at which a base excess is worked out against (the standard's reference), and the HCO3 bases of the two forms. Source: `van-slyke-sbe`. */
+/** pH at which a base excess is worked out against (the standard's reference), and the HCO3 base and buffer slope of the SBE, and the HCO3 base of the ABE. Source: `van-slyke-sbe`. */
 export const BASE_EXCESS_REFERENCE_PH = 7.4;
-const SBE_HCO3_BASE = 24.4;
-const SBE_FACTOR = 0.93;
-const SBE_BUFFER_SLOPE = 14.8;
+export const SBE_HCO3_BASE_MMOL_L = 24.8;
+export const SBE_BUFFER_SLOPE = 16.2;
 const ABE_HCO3_BASE = 24.8;
 
 /**
@@ -817,19 +814,19 @@ export const BASE_EXCESS_HB_SPAN_G_DL: NumericRange = Object.freeze({ low: 7, hi
  * How far (± mmol/L) a stated base excess may lie beyond the span of the standard and the actual
  * base excess and still agree with the pH and HCO3: analysers differ in the form they print (SBE
  * or ABE, ECF Hb 3 or 5 mmol/L, their own constants), a pH rounded to 0.01 moves the SBE by about
- * 0.14 mmol/L and an HCO3 rounded to 1 mmol/L by about 0.5; ±3 leaves room for these together
+ * 0.16 mmol/L and an HCO3 rounded to 1 mmol/L by about 0.5; ±3 leaves room for these together
  * while a sign written wrong or a value from another gas (most differ by more) is still caught.
  * Common practice, no source (`pneumark-base-excess-tolerance`).
  */
 export const BASE_EXCESS_TOLERANCE_MMOL_L = 3;
 
 /**
- * Standard base excess (mmol/L): 0.93 × (HCO3 − 24.4 + 14.8 × (pH − 7.40)). Negative for a base
- * deficit. `null` unless 0 ≤ pH ≤ 14 and HCO3 ≥ 0. Source: `van-slyke-sbe`.
+ * Standard base excess (mmol/L): HCO3 − 24.8 + 16.2 × (pH − 7.40). Negative for a base deficit.
+ * `null` unless 0 ≤ pH ≤ 14 and HCO3 ≥ 0. Source: `van-slyke-sbe`.
  */
 export function standardBaseExcess(ph: number, hco3MmolL: number): number | null {
   if (!validPh(ph) || !allFinite(hco3MmolL) || hco3MmolL < 0) return null;
-  return finiteOrNull(SBE_FACTOR * (hco3MmolL - SBE_HCO3_BASE + SBE_BUFFER_SLOPE * (ph - BASE_EXCESS_REFERENCE_PH)));
+  return finiteOrNull(hco3MmolL - SBE_HCO3_BASE_MMOL_L + SBE_BUFFER_SLOPE * (ph - BASE_EXCESS_REFERENCE_PH));
 }
 
 /**
