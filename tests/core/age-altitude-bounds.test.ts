@@ -31,7 +31,7 @@ describe('altitude: usual up to about 5,100 m', () => {
     const [f] = checkNote(text).findings;
     expect(f?.message).toBe('Altitude 6000 m is unusual (usually -450 m to 5100 m): check the unit and the transcription. As `6000 ft` it would be usual.');
     expect(quickFixes(text, f!).map((x) => [x.title, x.preferred, x.fixed])).toEqual([['Write ft instead of m', false, 'place altitude 6000 ft']]);
-    // West's model atmosphere at 6 km: exp(6.63268 − 0.6672 − 0.05364) ≈ 369 mmHg (West JB, J Appl Physiol 1996, from memory).
+    // West's model atmosphere at 6 km: exp(6.63268 − 0.6672 − 0.05364) ≈ 369 mmHg (West JB, J Appl Physiol 1996, its equation read in a reproduction).
     expect(checkNote('place altitude 6000 m\n@ 08:00\nvitals hr 90').analysis.timeline.timepoints[0]!.barometricMmhg).toBeCloseTo(369, 0);
     // In ft the same bound: 17,000 ft is 5,182 m; as metres 17,000 would be impossible, so nothing is offered.
     expect(findings('place altitude 17000 ft')).toEqual([['PN302', []]]);

@@ -10,7 +10,7 @@
 // PaCO2 / 0.8 (simplified alveolar gas equation; Fenn, Rahn & Otis 1946 and Riley & Cournand 1949,
 // from memory); P/F = PaO2 / FiO2, Berlin bands and P/F × PB/760 above 1,000 m (ARDS Definition Task
 // Force, JAMA 2012;307:2526–2533); PB by West's model atmosphere, exp(6.63268 − 0.1112 h − 0.00149 h²)
-// (West JB, J Appl Physiol 1996;81:1850–1854, from memory); 1 kPa = 7.50062 mmHg (the definitions of
+// (West JB, J Appl Physiol 1996;81:1850–1854, its equation read in a reproduction); 1 kPa = 7.50062 mmHg (the definitions of
 // the units); PBW male 50 + 0.91 × (height − 152.4), female 45.5 + 0.91 × (height − 152.4) (ARDS
 // Network, NEJM 2000;342:1301–1308); VE = VT × RR, compliance VT / (P − PEEP) (common practice, no
 // source); ventilatory ratio VE × PaCO2 / (PBW × 100 × 37.5) (Sinha P et al., AJRCCM 2019;199:333–341);
@@ -113,7 +113,7 @@ const CASES: readonly TimeCase[] = [
   },
   {
     name: 'ascent to 3,000 m mid-note: PB from West, PiO2 and A–a follow it, P/F adjusted (above 1,000 m)',
-    source: "West's model atmosphere (West 1996, from memory); P/F × PB/760 above 1,000 m (ARDS Definition Task Force 2012)",
+    source: "West's model atmosphere (West 1996, its equation read in a reproduction); P/F × PB/760 above 1,000 m (ARDS Definition Task Force 2012)",
     note: PLACES,
     timepoint: 1,
     values: {
@@ -153,7 +153,7 @@ const CASES: readonly TimeCase[] = [
   },
   {
     name: 'at 4,000 m on air: PB 475 mmHg, adjusted P/F 143',
-    source: "West's model atmosphere (West 1996, from memory); P/F × PB/760 (ARDS Definition Task Force 2012)",
+    source: "West's model atmosphere (West 1996, its equation read in a reproduction); P/F × PB/760 (ARDS Definition Task Force 2012)",
     note: DESCENT,
     timepoint: 0,
     values: { barometric: [westPb(4), 9], pio2: [0.21 * (westPb(4) - 47), 9], pf_ratio_altitude_adjusted: [((48 / 0.21) * westPb(4)) / 760, 9] },
@@ -305,7 +305,7 @@ const CASES: readonly TimeCase[] = [
   },
   {
     name: 'high flow ten hours on at 2,500 m: PiO2 at West\'s 570 mmHg, P/F adjusted, FiO2 carried',
-    source: "West's model atmosphere (West 1996, from memory); P/F × PB/760 above 1,000 m (ARDS Definition Task Force 2012)",
+    source: "West's model atmosphere (West 1996, its equation read in a reproduction); P/F × PB/760 above 1,000 m (ARDS Definition Task Force 2012)",
     note: HIGH_FLOW,
     timepoint: 2,
     values: {

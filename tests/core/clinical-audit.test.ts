@@ -234,7 +234,7 @@ const CASES: readonly AuditCase[] = [
   },
   {
     name: "altitude 4,000 m by West's model: PB 475 mmHg, hypoxaemia from low inspired oxygen",
-    source: "PB = exp(6.63268 − 0.1112 h − 0.00149 h²), h in km (West JB, J Appl Physiol 1996;81:1850–1854, from memory)",
+    source: "PB = exp(6.63268 − 0.1112 h − 0.00149 h²), h in km (West JB, J Appl Physiol 1996;81:1850–1854, its equation read in a reproduction)",
     note: 'patient age 28 y\nplace altitude 4000 m\n@ 08:00\noxygen room air\nabg 7.47/27/48/19.5',
     values: {
       barometric: [Math.exp(6.63268 - 0.4448 - 0.00149 * 16), 6], // 475.34
@@ -245,7 +245,7 @@ const CASES: readonly AuditCase[] = [
   },
   {
     name: 'altitude written in feet: 5,280 ft is 1,609.344 m, PB 633 mmHg',
-    source: '1 ft = 0.3048 m (NIST SP 811); West 1996 (from memory); P/F × PB/760 (Berlin 2012)',
+    source: '1 ft = 0.3048 m (NIST SP 811); West 1996 (its equation read in a reproduction); P/F × PB/760 (Berlin 2012)',
     note: 'patient age 40 y\nplace altitude 5280 ft\n@ 08:00\noxygen room air\nabg 7.43/35/68/22.8',
     values: {
       barometric: [Math.exp(6.63268 - 0.1112 * 1.609344 - 0.00149 * 1.609344 ** 2), 6], // 632.61

@@ -1,7 +1,8 @@
 // Haemoglobin in mmol/L, as many laboratories report it, beside g/dL and g/L. The substance
 // concentration is counted per haem-carrying chain (the monomer), molar mass 16,114.5 g/mol, a
-// quarter of the tetramer's 64,458 g/mol (the molar mass from memory; the usual SI convention for
-// haemoglobin), so 1 mmol/L = 16.1145 g/L = 1.61145 g/dL and 1 g/dL ≈ 0.6206 mmol/L. The factor
+// quarter of the tetramer's 64,458 g/mol (the tetramer's read in the oxygen delivery model of
+// Bretherick and Baillie, baillielab/oxygen_delivery: tests/physiology/sources-read.test.ts; the usual SI
+// convention for haemoglobin), so 1 mmol/L = 16.1145 g/L = 1.61145 g/dL and 1 g/dL ≈ 0.6206 mmol/L. The factor
 // from g/dL to mmol/L, × 0.62063, counting haemoglobin subunits, was read in table 1 of the review
 // at pmc.ncbi.nlm.nih.gov/articles/PMC3934467 (iron-status tests). The conversion is checked
 // against @lhncbc/ucum-lhc, given that molecular weight. A bare Hb is still read in g/dL.
@@ -28,7 +29,7 @@ const hbOf = (text: string) => checkNote(text).analysis.timeline.timepoints[0]?.
 const codesOf = (text: string) => checkNote(text).findings.map((f) => f.code);
 
 describe('haemoglobin in mmol/L', () => {
-  it('converts by the molar mass of the monomer, 16,114.5 g/mol, as UCUM does given that molecular weight (molar mass from memory; the factor read in table 1 of PMC3934467)', () => {
+  it('converts by the molar mass of the monomer, 16,114.5 g/mol, as UCUM does given that molecular weight (the 64,458 g/mol of the tetramer read in a reproduction; the factor read in table 1 of PMC3934467)', () => {
     expect(HB_MONOMER_G_PER_MOL).toBe(16114.5);
     expect(HB_G_PER_DL_PER_MMOL_L).toBeCloseTo(ucumHb(1, 'mmol/L', 'g/dL'), 9);
     // 1 g/dL × 0.62063 = mmol/L of haemoglobin subunits (read in table 1 of the review at

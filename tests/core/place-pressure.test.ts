@@ -1,7 +1,7 @@
 // A place line that states both an altitude and a barometric pressure: the stated pressure is the
 // one used (derive/atmosphere.ts), so an altitude it cannot belong to is left out without a word.
 // The pressure an altitude gives: West JB. Prediction of barometric pressures at high altitudes with
-// the use of model atmospheres. J Appl Physiol 1996;81:1850–1854 (from memory), and the U.S. Standard
+// the use of model atmospheres. J Appl Physiol 1996;81:1850–1854 (its equation read in a reproduction), and the U.S. Standard
 // Atmosphere 1976 (from memory); the two differ by a few mmHg at 2,000 m (West 604, standard 596).
 // The margin around them (5 %, weather and season at one place: a few percent) is Pneumark's own
 // convention, no source.
@@ -12,7 +12,7 @@ import { barometricFromAltitudeStandard, barometricFromAltitudeWest } from '../.
 const found = (text: string) => checkNote(text).findings.filter((f) => f.code === 'PN320');
 
 describe('barometric pressure unlike the altitude on its place line (PN320)', () => {
-  it('the models give about 604 and 596 mmHg at 2,000 m (West 1996; U.S. Standard Atmosphere 1976, both from memory)', () => {
+  it('the models give about 604 and 596 mmHg at 2,000 m (West 1996, its equation read in a reproduction; U.S. Standard Atmosphere 1976, from memory)', () => {
     expect(barometricFromAltitudeWest(2000)).toBeCloseTo(604.3, 0);
     expect(barometricFromAltitudeStandard(2000)).toBeCloseTo(596.3, 0);
   });

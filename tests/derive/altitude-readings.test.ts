@@ -64,7 +64,7 @@ describe('a place stated but not usable', () => {
   // 12,000 written without a unit reads as metres, beyond any summit (PN204: ordinary in feet);
   // 80 bare in an mmHg note is implausible as mmHg (ordinary as kPa). Neither is used, and sea
   // level is not assumed in their place: 12,000 ft is 3,658 m, where West's model atmosphere gives
-  // PB ≈ 496 mmHg (West JB, J Appl Physiol 1996;81:1850–1854, from memory), so PiO2 = 0.21 ×
+  // PB ≈ 496 mmHg (West JB, J Appl Physiol 1996;81:1850–1854, its equation read in a reproduction), so PiO2 = 0.21 ×
   // (496 − 47) ≈ 94 mmHg, not the 150 mmHg of sea level (inspired PO2: common practice).
   const notes = [
     'patient age 40 y\nplace altitude 12000\n@ 08:00\noxygen room air\nabg 7.40/40/50/24',
@@ -75,7 +75,7 @@ describe('a place stated but not usable', () => {
     expect(() => derived(note, 'aa_gradient')).toThrow(/not derived/);
     expect(readings(note)['hypoxaemia-mechanism']).toBe('Consistent with hypoxaemia, its mechanism not assessed: add a usable barometric pressure or altitude (the one on the place line is not used: see its finding) to get the A–a gradient.');
   });
-  it('with the unit written, the same altitude gives PiO2 ≈ 94 mmHg (West 1996 model, from memory)', () => {
+  it('with the unit written, the same altitude gives PiO2 ≈ 94 mmHg (West 1996 model, its equation read in a reproduction)', () => {
     expect(derived('patient age 40 y\nplace altitude 12000 ft\n@ 08:00\noxygen room air\nabg 7.40/40/50/24', 'pio2').value).toBeCloseTo(94.2, 0);
   });
 });
@@ -86,7 +86,7 @@ describe('P/F adjusted for altitude: above 1,000 m, as the Berlin definition ask
   // table as reproduced in Crit Care 2012 cc11867, Table 1, and in PMC8450703, Table 1; the JAMA text
   // itself not read). Where the note states only a pressure, 1,000 m is the pressure West's model
   // atmosphere gives there, exp(6.63268 − 0.1112 − 0.00149) = 678.57 mmHg, taken to a tenth: 678.6
-  // (West JB, J Appl Physiol 1996;81:1850–1854, from memory), whichever model the setting chooses.
+  // (West JB, J Appl Physiol 1996;81:1850–1854, its equation read in a reproduction), whichever model the setting chooses.
   // PaO2 84 on FiO2 0.4: P/F 210, in the 200–300 mmHg band; adjusted at PB 670 it would be 185.
   const vent = (place: string) => `place ${place}\n@ 08:00\nvent mode vc, peep 8, fio2 0.4\nabg 7.38/42/84/24`;
   const pb = (mmhg: number) => vent(`barometric ${mmhg} mmHg`);
@@ -108,7 +108,7 @@ describe('P/F adjusted for altitude: above 1,000 m, as the Berlin definition ask
     expect(band(pb(670))).toMatch(/^P\/F 185 mmHg \(adjusted for altitude\) with PEEP 8 cmH2O: .*100–200/);
   });
 
-  it("at 1,200 m it is adjusted by either model's pressure (West 663.2, standard 657.9 mmHg; both from memory)", () => {
+  it("at 1,200 m it is adjusted by either model's pressure (West 663.2, its equation read in a reproduction; standard 657.9 mmHg, from memory)", () => {
     expect(derived(alt(1200), 'pf_ratio_altitude_adjusted').value).toBeCloseTo((210 * 663.2118) / 760, 2); // 183.26
     expect(derived(alt(1200), 'pf_ratio_altitude_adjusted', { barometricModel: 'standard' }).value).toBeCloseTo((210 * 657.9389) / 760, 2); // 181.80
     expect(band(alt(1200))).toMatch(/^P\/F 183 mmHg \(adjusted for altitude\)/);
@@ -127,7 +127,7 @@ describe('P/F adjusted for altitude: above 1,000 m, as the Berlin definition ask
     expect(derived(alt(1001), 'pf_ratio_altitude_adjusted').value).toBeLessThan(210);
   });
 
-  it("a pressure alone: 678.6 mmHg, West's 1,000 m, is not adjusted, 678.5 is (West 1996, from memory)", () => {
+  it("a pressure alone: 678.6 mmHg, West's 1,000 m, is not adjusted, 678.5 is (West 1996, its equation read in a reproduction)", () => {
     expect(notApplied(pb(678.6))?.reason).toBe(NEAR);
     expect(derived(pb(678.5), 'pf_ratio_altitude_adjusted').value).toBeCloseTo((210 * 678.5) / 760, 2);
   });
@@ -160,7 +160,7 @@ describe('P/F adjusted for altitude: above 1,000 m, as the Berlin definition ask
 
   it('the summit-hut sample is adjusted as before: 4,550 m and 1,200 m are both above 1,000 m', () => {
     const text = readFileSync(new URL('../../samples/summit-hut-evacuation.pneu', import.meta.url), 'utf8');
-    // Room air at the hut: PaO2 33 ÷ 0.21 = 157.1; West's model at 4,550 m: 447.6 mmHg (from memory).
+    // Room air at the hut: PaO2 33 ÷ 0.21 = 157.1; West's model at 4,550 m: 447.6 mmHg (its equation read in a reproduction).
     expect(derived(text, 'pf_ratio_altitude_adjusted', {}, 0).value).toBeCloseTo(((33 / 0.21) * Math.exp(6.63268 - 0.1112 * 4.55 - 0.00149 * 4.55 ** 2)) / 760, 2);
     // Room air in the valley: PaO2 74 ÷ 0.21 = 352.4 at 1,200 m (663.2 mmHg): 307.5.
     expect(derived(text, 'pf_ratio_altitude_adjusted', {}, 3).value).toBeCloseTo(((74 / 0.21) * 663.2118) / 760, 2);
@@ -170,7 +170,7 @@ describe('P/F adjusted for altitude: above 1,000 m, as the Berlin definition ask
 describe('what a note near sea level is asked to add', () => {
   // The adjustment is not applied at 1,000 m or below (above), so adding an FiO2 there gives a P/F
   // and no adjusted P/F: the request for an FiO2 must not promise one. At 2,000 m (West's model
-  // atmosphere, PB ≈ 604 mmHg: West JB, J Appl Physiol 1996, from memory) it does give one.
+  // atmosphere, PB ≈ 604 mmHg: West JB, J Appl Physiol 1996, its equation read in a reproduction) it does give one.
   const cannula = (place: string) => `${place}@ 08:00\noxygen cannula 2\nabg 7.40/40/80/24`;
   const asked = (text: string) => derivation(text).missing.filter((m) => m.id === 'pf_ratio_altitude_adjusted');
 

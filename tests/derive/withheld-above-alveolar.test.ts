@@ -47,7 +47,7 @@ describe('values computed from a PaO2 that PN401 says cannot be', () => {
   });
 
   it('withhold the altitude-adjusted P/F too, below sea level, and say nothing of it near sea level', () => {
-    // West's model atmosphere at 3,000 m: PB ≈ 526 mmHg (West JB, J Appl Physiol 1996, from memory);
+    // West's model atmosphere at 3,000 m: PB ≈ 526 mmHg (West JB, J Appl Physiol 1996, its equation read in a reproduction);
     // PAO2 on air = 0.21 × (526 − 47) − 40 ÷ 0.8 ≈ 51 mmHg, so a PaO2 of 160 cannot be.
     const high = checkNote('place altitude 3000 m\n@ 08:00\nvent mode VC, fio2 0.21, peep 5\nabg 7.40/40/160/24').analysis.derivation(0);
     expect(high.notApplicable.find((n) => n.id === 'pf_ratio_altitude_adjusted')?.withheldBy).toBe('PN401');

@@ -32,8 +32,8 @@
 // - CaO2 = 1.34 × Hb × SaO2 ÷ 100 + 0.003 × PaO2 (common practice), SaO2 first, else SpO2; DO2 = CO ×
 //   CaO2 × 10; MAP estimate = DBP + (SBP − DBP) ÷ 3 (common practice); S/F = SpO2 ÷ FiO2; ROX = S/F ÷ RR
 //   (Roca et al. 2016, from memory); cannula FiO2 estimate 0.21 + 0.04 × flow (common practice).
-// - PB from altitude, West's model: exp(6.63268 − 0.1112 h − 0.00149 h²), h in km (West 1996, from memory).
-// - Hb 1 mmol/L = 1.61145 g/dL (monomer, 16,114.5 g/mol, from memory); 1 hPa = 100 ÷ 133.322387415 mmHg;
+// - PB from altitude, West's model: exp(6.63268 − 0.1112 h − 0.00149 h²), h in km (West 1996, its equation read in a reproduction).
+// - Hb 1 mmol/L = 1.61145 g/dL (monomer, 16,114.5 g/mol, a quarter of the tetramer's 64,458 as read); 1 hPa = 100 ÷ 133.322387415 mmHg;
 //   °C = (°F − 32) × 5 ÷ 9.
 import { readdirSync, readFileSync } from 'node:fs';
 import { UcumLhcUtils } from '@lhncbc/ucum-lhc';

@@ -61,10 +61,10 @@ describe('barometricFromAltitudeWest (default model)', () => {
   it('AMREE Base Camp, 5,400 m: about 400 mmHg measured (West et al. 1983; read in its abstract: 400.4 Torr), model within 1.5 %', () => {
     expect(Math.abs((barometricFromAltitudeWest(5400) ?? 0) - 400)).toBeLessThanOrEqual(6);
   });
-  it('sea level ≈ 760 mmHg (West 1996: the model is anchored at sea level; from memory)', () => {
+  it('sea level ≈ 760 mmHg (West 1996: the model is anchored at sea level; its equation read in a reproduction)', () => {
     expect(Math.abs((barometricFromAltitudeWest(0) ?? 0) - 760)).toBeLessThanOrEqual(1);
   });
-  it('reads 15–17 mmHg above the standard atmosphere at 8–9 km (West 1996; from memory)', () => {
+  it('reads 15–17 mmHg above the standard atmosphere at 8–9 km (West 1996; its equation read in a reproduction)', () => {
     for (const altitudeM of [8000, 8848, 9000]) {
       const difference = (barometricFromAltitudeWest(altitudeM) ?? 0) - (barometricFromAltitudeStandard(altitudeM) ?? 0);
       expect(difference).toBeGreaterThanOrEqual(15);

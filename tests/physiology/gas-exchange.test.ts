@@ -185,7 +185,7 @@ describe('oxygen dissociation curve (Severinghaus, J Appl Physiol 1979; read in 
   it('PO2 60 → ≈ 90 % (common practice, no source)', () => {
     expect(Math.abs((saturationFromPo2Severinghaus(60) ?? 0) - 0.9)).toBeLessThanOrEqual(0.01);
   });
-  it('PO2 from saturation, exact inversion (Ellis 1989; from memory): S 0.50 → 26.8 mmHg; S 0.90 → ≈ 60 mmHg (common practice)', () => {
+  it('PO2 from saturation, exact inversion (Ellis 1989, as read in a reproduction): S 0.50 → 26.8 mmHg; S 0.90 → ≈ 60 mmHg (common practice)', () => {
     expect(Math.abs((po2FromSaturation(0.5) ?? 0) - 26.8)).toBeLessThanOrEqual(0.2);
     expect(Math.abs((po2FromSaturation(0.9) ?? 0) - 60)).toBeLessThanOrEqual(2);
   });

@@ -79,6 +79,10 @@ import { checkNote } from '../../server/src/core';
 import { targetInForce } from '../../server/src/core/analysis/spo2-target';
 import { complianceImplausible } from '../../server/src/core/checks/compliance-reach';
 import { HFOV_USUAL_RATE_PER_MIN } from '../../server/src/core/checks/value-bounds';
+import { aaGradientUpperNormal, po2FromSaturation, saturationFromPo2Severinghaus } from '../../server/src/core/physiology/gas-exchange';
+import { HB_G_PER_DL_PER_MMOL_L, HB_MONOMER_G_PER_MOL } from '../../server/src/core/physiology/units';
+import { DEFAULT_HUFNER_ML_PER_G } from '../../server/src/core/physiology/oxygen-transport';
+import { bareHbBesideMmolCheck as hbUnits } from '../../server/src/core/checks/hb-units';
 import { ORDINARY_TARGET_FROM_PCT, spo2AboveTarget, spo2BelowTarget, targetBesideHypercapnia } from '../../server/src/core/checks/spo2-target';
 
 /** Per mmHg, as read; Pneumark's spans are per 10 mmHg. */
@@ -788,8 +792,8 @@ describe('the alveolar gas equation against a worked value as read', () => {
 // Barometric pressures at extreme altitudes on Mt. Everest: physiological significance. J Appl Physiol
 // 1983;54(5):1188–1194 (in a copy of the article): 400.4 Torr at 5,400 m, 351.0 at 6,300 m, 283.6 at
 // 8,050 m and 253.0 on the summit, 8,848 m; all considerably higher than the ICAO Standard Atmosphere
-// predicts. West's model atmosphere of 1996, Pneumark's default, is not read (from memory): this holds
-// its pressures to the ones measured.
+// predicts. West's model atmosphere of 1996, Pneumark's default (its equation read in a reproduction, below,
+// session 32): this holds its pressures to the ones measured.
 const EVEREST_MEASURED_TORR = [[5400, 400.4], [6300, 351.0], [8050, 283.6], [8848, 253.0]] as const;
 
 describe('West\'s model atmosphere against the pressures measured on Everest, as read', () => {
@@ -806,7 +810,7 @@ describe('West\'s model atmosphere against the pressures measured on Everest, as
 
   it('the citations say what was read and what is still recalled', () => {
     expect(ATMOSPHERE['west-1983']).toContain('351.0 at 6,300 m, 283.6 at 8,050 m');
-    expect(ATMOSPHERE['west-1996']).toContain('the paper and its equation from memory');
+    expect(ATMOSPHERE['west-1996']).toContain('the paper not read here');
   });
 });
 
@@ -888,5 +892,87 @@ describe('the bounds of age and altitude against the extremes as read', () => {
     expect(EVEREST_SUMMIT_M).toBeLessThanOrEqual(altitude.hard!.max!);
     expect(EVEREST_SUMMIT_M).toBeGreaterThan(altitude.soft!.max!);
     expect(altitude.boundsSource).toContain('8,848 m, read in the abstract of West JB et al.');
+  });
+});
+
+// Read in December 2026 (session 32) in public code, each file named in the citation it backs:
+// - West's model atmosphere of 1996, PB = exp(6.63268 − 0.1112 h − 0.00149 h²) mmHg, h in km, in the oxygen
+//   delivery model of Bretherick A and Baillie JK (2018; baillielab/oxygen_delivery, oxygen_delivery.py), whose
+//   function calculatedconstants names "West 1996" as its source and multiplies by 0.1333 to give kPa.
+// - In the same model, haemoglobin as a molar concentration: its mass concentration (g/L) ÷ 64,458, four O2
+//   bound to each, at a molar volume of R × 273.15 ÷ 101.325 with R 8.3145 J/(K·mol).
+// - Ellis's inversion of Severinghaus's equation, PO2 = ∛(A + √(50³ + A²)) + ∛(A − √(50³ + A²)) with
+//   A = 11,700 ÷ (1/S − 1), in the R package acutelines.datatoolbox (UMCG-SEH, R/respiration.r, spo2_to_pao2),
+//   a version of which cites the letter by its doi, 10.1152/jappl.1989.67.2.902.
+// - Mellemgaard 1966's citation, Acta Physiol Scand 1966;67(1):10–20, among the references of the R package
+//   icuriskr's aa_gradient (rdrr.io), which does not give the rule; the rule 2.5 + 0.21 × age is still recalled.
+const WEST_1996_AS_READ = (altitudeM: number): number => Math.exp(6.63268 - 0.1112 * (altitudeM * 1e-3) - 0.00149 * (altitudeM * 1e-3) ** 2);
+const HB_TETRAMER_G_PER_MOL_AS_READ = 64458;
+const MOLAR_VOLUME_ML_AS_READ = (8.3145 * 273.15) / 101.325 * 1000;
+const ELLIS_1989_AS_READ = (s: number): number => {
+  const a = 11700 / (1 / s - 1);
+  const b = Math.sqrt(50 ** 3 + a * a);
+  return Math.cbrt(a + b) + Math.cbrt(a - b);
+};
+
+describe('West\'s model atmosphere against its equation as read', () => {
+  it.each([-430, 0, 1000, 2500, 3440, 5400, 6300, 8050, 8848, 10000])('%d m: the pressure is the equation\'s', (altitudeM) => {
+    expect(barometricFromAltitudeWest(altitudeM)!).toBeCloseTo(WEST_1996_AS_READ(altitudeM), 9);
+  });
+
+  it('the sea-level pressure of the model is exp(6.63268) = 759.5 mmHg, and the model\'s kPa (× 0.1333) 101.2', () => {
+    expect(barometricFromAltitudeWest(0)!).toBeCloseTo(759.51, 2);
+    expect(WEST_1996_AS_READ(0) * 0.1333).toBeCloseTo(101.24, 2);
+  });
+
+  it('the citation says where the equation was read', () => {
+    expect(ATMOSPHERE['west-1996']).toContain('baillielab/oxygen_delivery');
+    expect(ATMOSPHERE['west-1996']).not.toContain('equation from memory');
+  });
+});
+
+describe('the molar mass of haemoglobin against the tetramer\'s as read', () => {
+  it('the monomer\'s 16,114.5 g/mol is a quarter of the 64,458 read, and 1 mmol/L of it is 1.61145 g/dL', () => {
+    expect(HB_MONOMER_G_PER_MOL).toBe(HB_TETRAMER_G_PER_MOL_AS_READ / 4);
+    expect(HB_G_PER_DL_PER_MMOL_L).toBeCloseTo(1.61145, 12);
+  });
+
+  it('four O2 per 64,458 g at the molar volume read, 22.41 L/mol, is 1.39 mL/g: the all-active figure the Hüfner abstract gives, above the default 1.34', () => {
+    const mlPerG = (4 * MOLAR_VOLUME_ML_AS_READ) / HB_TETRAMER_G_PER_MOL_AS_READ;
+    expect(mlPerG).toBeCloseTo(1.391, 3);
+    expect(Math.round(mlPerG * 100) / 100).toBe(1.39);
+    expect(DEFAULT_HUFNER_ML_PER_G).toBeLessThan(mlPerG);
+  });
+
+  it('the citations say where the molar mass was read', () => {
+    expect(UNIT_SOURCES['haemoglobin-molar-mass']).toContain('baillielab/oxygen_delivery');
+    expect(hbUnits.source).toContain('baillielab/oxygen_delivery');
+    expect(hbUnits.source).not.toContain('from memory');
+  });
+});
+
+describe('the PO2 from a saturation against Ellis\'s inversion as read', () => {
+  it.each([0.3, 0.5, 0.75, 0.88, 0.9, 0.94, 0.97, 0.99])('S %f: the PO2 is the inversion\'s, and gives S back by Severinghaus\'s equation', (s) => {
+    const po2 = po2FromSaturation(s)!;
+    expect(po2).toBeCloseTo(ELLIS_1989_AS_READ(s), 6);
+    expect(saturationFromPo2Severinghaus(po2)!).toBeCloseTo(s, 9);
+  });
+
+  it('the citation says where the inversion was read', () => {
+    expect(GAS_EXCHANGE['ellis-1989']).toContain('10.1152/jappl.1989.67.2.902');
+    expect(GAS_EXCHANGE['ellis-1989']).toContain('UMCG-SEH/acutelines.datatoolbox');
+  });
+});
+
+describe('Mellemgaard 1966: the citation as read, the rule still recalled', () => {
+  it('2.5 + 0.21 × age: 40 years 10.9 mmHg, 80 years 19.3 (from memory)', () => {
+    expect(aaGradientUpperNormal(40, 'mellemgaard')!).toBeCloseTo(10.9, 9);
+    expect(aaGradientUpperNormal(80, 'mellemgaard')!).toBeCloseTo(19.3, 9);
+  });
+
+  it('the citation says where it was read and that the rule is recalled', () => {
+    expect(GAS_EXCHANGE['mellemgaard-1966']).toContain('Acta Physiol Scand 1966;67(1):10–20');
+    expect(GAS_EXCHANGE['mellemgaard-1966']).toContain('icuriskr');
+    expect(GAS_EXCHANGE['mellemgaard-1966']).toContain('from memory');
   });
 });

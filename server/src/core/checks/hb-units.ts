@@ -36,7 +36,7 @@ export const bareHbBesideMmolCheck = defineCheck({
     example: '@ 08:00\nlabs hb 8.4 mmol/L\n@ 12:00\nlabs hb 8.1',
     fix: 'Write the unit the laboratory reported: `labs hb 8.1 mmol/L`, or `labs hb 8.1 g/dL` if it is g/dL. The quick fixes add either.',
   },
-  source: 'haemoglobin is reported in g/dL, g/L or mmol/L (subunit basis, 1 mmol/L = 1.61145 g/dL: the factor 0.62063 mmol/L per g/dL read in its table 1 at pmc.ncbi.nlm.nih.gov/articles/PMC3934467, the molar mass 16,114.5 g/mol from memory) by different laboratories; reading a number in another lab\'s unit is a transcription error (common practice, no source)',
+  source: 'haemoglobin is reported in g/dL, g/L or mmol/L (subunit basis, 1 mmol/L = 1.61145 g/dL: the factor 0.62063 mmol/L per g/dL read in its table 1 at pmc.ncbi.nlm.nih.gov/articles/PMC3934467, the molar mass 16,114.5 g/mol a quarter of the tetramer\'s 64,458, read in the oxygen delivery model of Bretherick and Baillie, baillielab/oxygen_delivery) by different laboratories; reading a number in another lab\'s unit is a transcription error (common practice, no source)',
   run(ctx) {
     const timepoints = ctx.analysis.timeline.timepoints;
     // The first Hb written in mmol/L; most notes have none, and then nothing more is looked at.

@@ -11,7 +11,7 @@ import { PA_PER_ATMOSPHERE, PA_PER_MMHG } from './units';
 /** Citations for the formulas in this module (key → citation). */
 export const SOURCES = Object.freeze({
   'west-1996':
-    'West JB. Prediction of barometric pressures at high altitudes with the use of model atmospheres. J Appl Physiol 1996;81(4):1850–1854 (the paper and its equation from memory): the pressures its equation gives lie within 1.3 % (4.3 mmHg) of the four mean pressures measured on Mount Everest that the abstract of West et al. 1983 gives (read December 2026).',
+    'West JB. Prediction of barometric pressures at high altitudes with the use of model atmospheres. J Appl Physiol 1996;81(4):1850–1854 (the paper not read here, its citation from memory): its equation, PB = exp(6.63268 − 0.1112 h − 0.00149 h²) mmHg with h the altitude in km, read in its reproduction in the oxygen delivery model of Bretherick A and Baillie JK (2018), whose function calculatedconstants names West 1996 as its source and turns the mmHg into kPa (× 0.1333) (baillielab/oxygen_delivery, oxygen_delivery.py, in a stored copy of the repository, December 2026); the pressures it gives lie within 1.3 % (4.3 mmHg) of the four mean pressures measured on Mount Everest that the abstract of West et al. 1983 gives (read December 2026).',
   'west-1983':
     'West JB, Lahiri S, Maret KH, Peters RM Jr, Pizzo CJ. Barometric pressures at extreme altitudes on Mt. Everest: physiological significance. J Appl Physiol 1983;54(5):1188–1194: mean pressures 400.4 Torr at 5,400 m, 351.0 at 6,300 m, 283.6 at 8,050 m and 253.0 Torr on the summit, 8,848 m, all considerably higher than the ICAO Standard Atmosphere predicts (read in its abstract, in a copy of the article).',
   'us-standard-atmosphere-1976':

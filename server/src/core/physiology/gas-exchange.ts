@@ -17,7 +17,7 @@ export const SOURCES = Object.freeze({
   'aa-gradient-age-rules':
     'Upper normal A–a gradient age/4 + 4 and (age + 10)/4: common practice, no source.',
   'mellemgaard-1966':
-    'Mellemgaard K. The alveolar-arterial oxygen difference: its size and components in normal man. Acta Physiol Scand 1966;67:10–20 (from memory).',
+    'Mellemgaard K. The alveolar-arterial oxygen difference: its size and components in normal man. Acta Physiol Scand 1966;67(1):10–20 (the citation read among the references of the R package icuriskr\'s aa_gradient, on its page at rdrr.io, which does not give the rule; the paper and its upper normal, 2.5 + 0.21 × age mmHg, from memory).',
   'gilbert-keighley-1974':
     'Gilbert R, Keighley JF. The arterial/alveolar oxygen tension ratio: an index of gas exchange applicable to varying inspired oxygen concentrations. Am Rev Respir Dis 1974;109(1):142–145 (the paper from memory). The ratio as arterial over alveolar PO2, unaffected by FiO2 or barometric pressure, and one above 75 % probably normal, read in the chapter on oxygen tension-based indices of oxygenation at derangedphysiology.com (December 2026).',
   'berlin-2012':
@@ -35,7 +35,7 @@ export const SOURCES = Object.freeze({
   'severinghaus-1979':
     'Severinghaus JW. Simple, accurate equations for human blood O2 dissociation computations. J Appl Physiol 1979;46(3):599–602: S = (((PO2³ + 150 × PO2)^−1 × 23,400) + 1)^−1, within ±0.0055 of the standard curve (read in its abstract on jap.physiology.org).',
   'ellis-1989':
-    'Ellis RK. Determination of PO2 from saturation. J Appl Physiol 1989;67(2):902 (letter; exact inversion of the Severinghaus equation) (from memory).',
+    'Ellis RK. Determination of PO2 from saturation. J Appl Physiol 1989;67(2):902, doi 10.1152/jappl.1989.67.2.902 (letter, with a reply by Severinghaus; not read here): its exact inversion of the Severinghaus equation, PO2 = ∛(A + √(50³ + A²)) + ∛(A − √(50³ + A²)) mmHg with A = 11,700 ÷ (1/S − 1), read in its reproduction in the R package acutelines.datatoolbox of the University Medical Center Groningen (UMCG-SEH/acutelines.datatoolbox, R/respiration.r, spo2_to_pao2, a version of which names this letter by its doi among its references, with Severinghaus 1979 and Brown and coauthors, Chest 2016, doi 10.1016/j.chest.2016.01.003; in a stored copy of the repository, December 2026); the author, title, volume and page as other public code cites them. The root is taken here as u − 50/u with u = ∛(A + √(A² + 50³)), the same number, since ∛(A − √(50³ + A²)) = −50/u.',
 } as const);
 
 /** Default respiratory quotient (R) of the alveolar gas equation. Source: `alveolar-gas-equation`. */
