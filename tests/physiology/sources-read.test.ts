@@ -43,6 +43,14 @@
  * model atmosphere against the pressures measured on Everest; the arterial O2 content and delivery; the
  * normal a/A ratio; the oscillation frequencies of HFOV in adults; the oldest verified age and the
  * height of the highest summit, behind the bounds of age and altitude.
+ *
+ * Read in December 2026 (session 32), each beside its test below: the CLSI forms of the standard and
+ * the actual base excess, in the manuals of blood gas analysers (the standard base excess Pneumark used
+ * before was not the standard's, and was replaced); West's model atmosphere of 1996 and the molar mass of
+ * haemoglobin, in the oxygen delivery model of Bretherick and Baillie; Ellis's inversion of Severinghaus's
+ * equation, in the Acutelines data toolbox; Mellemgaard 1966's citation; the frequencies of neonates on
+ * nasal HFOV. Not found in that session (still from memory): Mellemgaard's rule, Madias 1979, the usual
+ * pressure control of 10–25 cmH2O, which PEEP Amato 2015 measured driving pressure from.
  */
 import { describe, expect, it } from 'vitest';
 import { VT_PER_KG_HARD_MAX, VT_PER_KG_USUAL } from '../../server/src/core/analysis/per-kg-volume';
@@ -974,5 +982,24 @@ describe('Mellemgaard 1966: the citation as read, the rule still recalled', () =
     expect(GAS_EXCHANGE['mellemgaard-1966']).toContain('Acta Physiol Scand 1966;67(1):10–20');
     expect(GAS_EXCHANGE['mellemgaard-1966']).toContain('icuriskr');
     expect(GAS_EXCHANGE['mellemgaard-1966']).toContain('from memory');
+  });
+});
+
+// The oscillation frequencies of neonates on nasal HFOV, as read (session 32) in table 2 of De Luca D, Dell'Orto V.
+// Non-invasive high-frequency oscillatory ventilation in neonates: review of physiology, biology and clinical data.
+// Arch Dis Child Fetal Neonatal Ed 101(6):F565 (fn.bmj.com; the year, 2016, from memory): 10–12 Hz after
+// extubation, 8–10 Hz for neonates at risk of bronchopulmonary dysplasia. The usual upper 15 Hz is still recalled.
+const NEONATAL_NASAL_HFOV_HZ = [[10, 12], [8, 10]] as const;
+
+describe('HFOV: the usual set rate against the neonatal frequencies as read', () => {
+  it.each(NEONATAL_NASAL_HFOV_HZ)('%d to %d Hz lies within the usual range in HFOV', (low, high) => {
+    expect(low * 60).toBeGreaterThanOrEqual(HFOV_USUAL_RATE_PER_MIN.min!);
+    expect(high * 60).toBeLessThanOrEqual(HFOV_USUAL_RATE_PER_MIN.max!);
+  });
+
+  it('the bounds say where they were read, and that 15 Hz is recalled', () => {
+    const source = fieldById('vent_rate')!.boundsSource;
+    expect(source).toContain('De Luca D, Dell\'Orto V');
+    expect(source).toContain('up to about 15 Hz from memory');
   });
 });
