@@ -1003,3 +1003,18 @@ describe('HFOV: the usual set rate against the neonatal frequencies as read', ()
     expect(source).toContain('up to about 15 Hz from memory');
   });
 });
+
+// Roca and coauthors' first paper on the ROX index, as read (session 32) on the first page of its accepted manuscript
+// (a copy at scribd.com): Roca O, Messika J, Caralt B, García-de-Acilu M, Sztrymf B, Ricard JD, Masclans JR.
+// Predicting success of high flow nasal cannula in pneumonia patients with hypoxemic respiratory failure: the
+// utility of the ROX index. Journal of Critical Care (2016), doi 10.1016/j.jcrc.2016.05.022. Volume and pages
+// not shown there (from memory).
+describe('the ROX index: the citation of 2016 as read', () => {
+  it('names its first three authors, its journal and year, and its doi; the volume and pages are recalled', () => {
+    const source = GAS_EXCHANGE['roca-2016'];
+    expect(source).toContain('Roca O, Messika J, Caralt B');
+    expect(source).toContain('J Crit Care 2016');
+    expect(source).toContain('10.1016/j.jcrc.2016.05.022');
+    expect(source).toContain('the volume and pages from memory');
+  });
+});

@@ -25,7 +25,7 @@ export const SOURCES = Object.freeze({
   'rice-2007':
     'Rice TW, Wheeler AP, Bernard GR, Hayden DL, Schoenfeld DA, Ware LB. Comparison of the SpO2/FIO2 ratio and the PaO2/FIO2 ratio in patients with acute lung injury or ARDS. Chest 2007;132(2):410–417: S/F = 64 + 0.84 × P/F in SpO2 below 97 %, S/F 235 corresponding to P/F 200 and 315 to P/F 300 (read in its abstract; the journal, volume and pages from memory).',
   'roca-2016':
-    'Roca O, Messika J, Caralt B, et al. Predicting success of high-flow nasal cannula in pneumonia patients with hypoxemic respiratory failure: the utility of the ROX index. J Crit Care 2016;35:200–205 (from memory).',
+    'Roca O, Messika J, Caralt B, et al. Predicting success of high-flow nasal cannula in pneumonia patients with hypoxemic respiratory failure: the utility of the ROX index. J Crit Care 2016;35:200–205, doi 10.1016/j.jcrc.2016.05.022 (its authors, title, journal, year and doi read on the first page of its accepted manuscript, in a copy at scribd.com, December 2026; the volume and pages from memory).',
   'roca-2019':
     'Roca O, Caralt B, Messika J, et al. An index combining respiratory rate and oxygenation to predict outcome of nasal high-flow therapy. Am J Respir Crit Care Med 2019;199(11):1368–1376, doi 10.1164/rccm.201803-0589OC: ROX ≥ 4.88 at 2, 6 or 12 h of high flow associated with a lower risk of intubation, and < 2.85, < 3.47 and < 3.85 at 2, 6 and 12 h predicting failure (read in its abstract on atsjournals.org; the title from memory).',
   'ortiz-1987':
