@@ -49,8 +49,9 @@
  * before was not the standard's, and was replaced); West's model atmosphere of 1996 and the molar mass of
  * haemoglobin, in the oxygen delivery model of Bretherick and Baillie; Ellis's inversion of Severinghaus's
  * equation, in the Acutelines data toolbox; Mellemgaard 1966's citation; the frequencies of neonates on
- * nasal HFOV. Not found in that session (still from memory): Mellemgaard's rule, Madias 1979, the usual
- * pressure control of 10–25 cmH2O, which PEEP Amato 2015 measured driving pressure from.
+ * nasal HFOV; the citation of Roca and coauthors 2016. Not found in that session (still from memory):
+ * Mellemgaard's rule, Madias 1979, the usual pressure control of 10–25 cmH2O, which PEEP Amato 2015
+ * measured driving pressure from.
  */
 import { describe, expect, it } from 'vitest';
 import { VT_PER_KG_HARD_MAX, VT_PER_KG_USUAL } from '../../server/src/core/analysis/per-kg-volume';
