@@ -18,6 +18,8 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { run } from '../../server/src/cli/main';
+import { checkNote } from '../../server/src/core';
+import { derivedValueText } from '../../server/src/core/service/derived-hover';
 import { memoryIo } from '../helpers/memory-io';
 
 const MMHG_PER_KPA = 7.50062;
@@ -128,6 +130,10 @@ describe('the figures of a PaCO2 and of its expected range never contradict the 
     expect(out).toContain('PaCO2 4.7 kPa (35 mmHg)');
     expect(out).toContain('PaCO2 expected 4.7–5.3 kPa (35–40 mmHg)');
     expect(out).toContain('PaCO2 within the expected 4.7–5.3 kPa');
+    // The hover (and the inlay hint's tooltip) of the expected PaCO2 writes it so too.
+    const result = checkNote(note('4.7', 'kPa', '19.7'));
+    const expected = result.analysis.derivation(0)!.derived.find((d) => d.id === 'paco2_expected')!;
+    expect(derivedValueText(expected, result.analysis.timeline.timepoints[0]!)).toBe('4.7–5.3 kPa (35–40 mmHg)');
   });
 
   it('2.5 kPa with HCO3 5.6, on the high end (18.4 mmHg): (19 mmHg) beside 1.9–2.5 kPa (14–19 mmHg), the high end rounded up', async () => {
