@@ -759,7 +759,7 @@ function acidBaseText(cls: AcidBaseClassification, finding: ReadFinding, gas: Ga
     const { low, high } = exp.range;
     const range = gas.range(low, high, o, basis.co2Resolution);
     if (cls.compensation === 'appropriate') text += `, with the expected respiratory response (PaCO2 within the expected ${range})`;
-    // The PaCO2 as the gas's numbers write it: kept on its side of the end as shown (`co2End`).
+    // The PaCO2 as the gas's numbers write it, on its side of the end as shown (`paco2BesideRange`).
     else if (suspected === 'respiratory-acidosis') text += `; PaCO2 ${paco2Text} is above the expected ${range}: consistent with an added respiratory acidosis`;
     else if (suspected === 'respiratory-alkalosis') text += `; PaCO2 ${paco2Text} is below the expected ${range}: consistent with an added respiratory alkalosis`;
   } else if (exp?.kind === 'metabolic-response') {
