@@ -2,7 +2,8 @@
 // (tests/core/infant-length.test.ts); after it there was none short of the field's hard minimum
 // (20 cm), so a 3-year-old of 45 cm passed. The floor now goes on through childhood in the same way
 // (`childHeightMinCm`): the −3 SD of the shorter sex at the age corrected for a birth 16 weeks
-// early (the earliest of INTERGROWTH-21st very preterm size at birth, 2016), less 10 cm (our margin,
+// early (the earliest of INTERGROWTH-21st very preterm size at birth, 2016; in full to a corrected age
+// of 3 years, none from about 4 years 4 months: see the last block), less 10 cm (our margin,
 // no source), in whole cm rounded down, from the height-for-age by whole year, straight between them:
 // - 1 to 4 years: WHO Multicentre Growth Reference Study Group, WHO Child Growth Standards:
 //   length/height-for-age … methods and development, WHO 2006 (citation from memory); the girls' rows
@@ -23,7 +24,7 @@
 // floor does not drop at 18. Invented patients.
 import { describe, expect, it } from 'vitest';
 import { checkNote } from '../../server/src/core';
-import { ADULT_HEIGHT_USUAL_MIN_CM, CHILD_HEIGHT_MARGIN_CM, childHeightMinCm, EARLIEST_BIRTH_WEEKS_BEFORE_TERM } from '../../server/src/core/analysis/bounds';
+import { ADULT_HEIGHT_USUAL_MIN_CM, CHILD_HEIGHT_MARGIN_CM, childHeightMinCm, CORRECTED_IN_FULL_UNTIL_YEARS, correctionWeeksAt, EARLIEST_BIRTH_WEEKS_BEFORE_TERM } from '../../server/src/core/analysis/bounds';
 import { heightForAgeShorterCm, lengthForAgeGirlsCm } from '../../server/src/core/physiology/growth';
 
 const findings = (text: string) => checkNote(text).findings.map((f) => `${f.code} ${f.range.start.line + 1}`);
@@ -34,17 +35,18 @@ const minus3 = (m: number, s: number) => m * (1 - 3 * s);
 const corrected = (years: number) => years - (EARLIEST_BIRTH_WEEKS_BEFORE_TERM * 7) / 365.25;
 
 describe('the floor of a child\'s height after the first year (`childHeightMinCm`)', () => {
-  it('at 1, 2, 5, 10 and 12 years, and from about 12 years 8 months the adult\'s 120 cm', () => {
+  it('at 1, 2, 5, 10 and 12 years, and from about 12 years 4 months the adult\'s 120 cm', () => {
     // 1 y: corrected 253.25 days, on the first year's rows (WHO 2006, days 244 and 274): −3 SD 62.05 cm − 10 → 52.
     expect(childHeightMinCm(1)).toBe(52);
     // 2 y: corrected 1.693 y, between 1 y (74.0049, 0.03479: 66.28) and 2 y (85.7299, 0.03764: 76.05), WHO 2006: 73.05 − 10 → 63.
     expect(childHeightMinCm(2)).toBe(63);
-    // 5 y: corrected 4.693 y, between 4 y (WHO 2006 day 1461: 102.7312, 0.04193: 89.81) and 5 y (WHO 2007 month 60: 109.0725, 0.04346: 94.85): 93.31 − 10 → 83.
-    expect(childHeightMinCm(5)).toBe(83);
-    // 10 y: corrected 9.693 y, between 9 y (WHO 2007 girls month 108: 132.4944, 0.04612: 114.16) and 10 y (boys month 120: 137.7795, 0.04626: 118.66): 117.28 − 10 → 107.
-    expect(childHeightMinCm(10)).toBe(107);
-    // 12 y: corrected 11.693 y, between the boys' 11 y (143.1126, 0.04703: 122.92) and 12 y (149.0807, 0.04753: 127.82): 126.32 − 10 → 116.
-    expect(childHeightMinCm(12)).toBe(116);
+    // From about 4 years 4 months the age is not corrected (`correctionWeeksAt`).
+    // 5 y: WHO 2007 month 60 (109.0725, 0.04346): 94.85 − 10 → 84.
+    expect(childHeightMinCm(5)).toBe(84);
+    // 10 y: the boys' month 120 (137.7795, 0.04626): 118.66 − 10 → 108.
+    expect(childHeightMinCm(10)).toBe(108);
+    // 12 y: the boys' month 144 (149.0807, 0.04753): 127.82 − 10 → 117.
+    expect(childHeightMinCm(12)).toBe(117);
     // 17 y: between 16 y (month 192: 162.5156, 0.04176: 142.16) and 17 y (month 204: 162.8545, 0.04109: 142.78): 142.59 − 10 → 132,
     // above the adult's usual minimum (120 cm, field registry, common practice, no source): capped at 120.
     expect(heightForAgeShorterCm(corrected(17), -3)! - CHILD_HEIGHT_MARGIN_CM).toBeCloseTo(132.59, 1);
@@ -52,9 +54,9 @@ describe('the floor of a child\'s height after the first year (`childHeightMinCm
     expect(childHeightMinCm(17)).toBe(120);
     // 18 y for the function (a patient of 18 is an adult): 143.09 − 10 → 133 uncapped, 120 capped.
     expect(childHeightMinCm(18)).toBe(120);
-    // The cap is reached at about 12 years 8 months: day 4,628 119 cm, day 4,629 120 cm (corrected 12.36 y,
+    // The cap is reached at about 12 years 4 months: day 4,516 119 cm, day 4,517 120 cm (12.37 y,
     // between the boys' 12 y, 127.82, and 13 y, 133.76: 130.0 − 10 → 120).
-    expect([childHeightMinCm(4628 / 365.25), childHeightMinCm(4629 / 365.25)]).toEqual([119, 120]);
+    expect([childHeightMinCm(4516 / 365.25), childHeightMinCm(4517 / 365.25)]).toEqual([119, 120]);
     for (const years of [13, 14, 15, 16, 17.5, 17.99]) expect([years, childHeightMinCm(years)]).toEqual([years, 120]);
   });
 
@@ -69,7 +71,7 @@ describe('the floor of a child\'s height after the first year (`childHeightMinCm
     }
   });
 
-  it('at the joins of the references: the corrected age of a year (the first year\'s last row is the first whole year\'s), of 2 years (height from length) and of 5 years (WHO 2007 from WHO 2006)', () => {
+  it('at the joins of the references: the corrected age of a year (the first year\'s last row is the first whole year\'s), of 2 years (height from length), and 5 years of age (WHO 2007 from WHO 2006)', () => {
     const at = (correctedYears: number) => childHeightMinCm(correctedYears + (EARLIEST_BIRTH_WEEKS_BEFORE_TERM * 7) / 365.25);
     // Corrected 1 y: day 365 of the first year (74.0049, 0.03479): 66.28 − 10 → 56, on both tables.
     expect(lengthForAgeGirlsCm(365, -3)).toBeCloseTo(heightForAgeShorterCm(1, -3)!, 9);
@@ -78,10 +80,10 @@ describe('the floor of a child\'s height after the first year (`childHeightMinCm
     expect(heightForAgeShorterCm(2, -3)).toBeCloseTo(minus3(85.7299, 0.03764), 6);
     expect(heightForAgeShorterCm(2, -3)!).toBeLessThan(minus3(86.4008, 0.03733));
     expect(at(2)).toBe(66);
-    // Corrected 5 y: WHO 2007 month 60 (109.0725, 0.04346: 94.85), below WHO 2006 day 1826 (109.4189, 0.04346: 95.15).
+    // 5 y, with no correction (from about 4 years 4 months): WHO 2007 month 60 (109.0725, 0.04346: 94.85), below WHO 2006 day 1826 (109.4189, 0.04346: 95.15).
     expect(heightForAgeShorterCm(5, -3)).toBeCloseTo(minus3(109.0725, 0.04346), 6);
     expect(heightForAgeShorterCm(5, -3)!).toBeLessThan(minus3(109.4189, 0.04346));
-    expect([at(4.999), at(5), at(5.001)]).toEqual([84, 84, 84]);
+    expect([childHeightMinCm(4.999), childHeightMinCm(5), childHeightMinCm(5.001)]).toEqual([84, 84, 84]);
   });
 
   it('takes the shorter sex at each whole year: the girls\' −3 SD but at 10 to 13 years the boys\' (WHO 2007 rows read)', () => {
@@ -126,11 +128,11 @@ describe('a child\'s height below the floor of the age is unusual, with a word o
     expect(findings('patient age 3 y, height 70 cm')).toEqual(['PN302 1']);
   });
 
-  it('at 10 years: 106 cm is unusual, 107 cm is not; at 12 years 115 and 116 cm; at 17 years 119 and 120 cm', () => {
-    expect(findings('patient age 12 y, height 115 cm')).toEqual(['PN302 1']);
-    expect(findings('patient age 12 y, height 116 cm')).toEqual([]);
-    expect(findings('patient age 10 y, height 106 cm')).toEqual(['PN302 1']);
-    expect(findings('patient age 10 y, height 107 cm')).toEqual([]);
+  it('at 10 years: 107 cm is unusual, 108 cm is not; at 12 years 116 and 117 cm; at 17 years 119 and 120 cm', () => {
+    expect(findings('patient age 12 y, height 116 cm')).toEqual(['PN302 1']);
+    expect(findings('patient age 12 y, height 117 cm')).toEqual([]);
+    expect(findings('patient age 10 y, height 107 cm')).toEqual(['PN302 1']);
+    expect(findings('patient age 10 y, height 108 cm')).toEqual([]);
     expect(findings('patient age 17 y, height 119 cm')).toEqual(['PN302 1']);
     expect(findings('patient age 17 y, height 120 cm')).toEqual([]);
   });
@@ -142,7 +144,7 @@ describe('a child\'s height below the floor of the age is unusual, with a word o
   });
 
   it('a bare number below the floor is read in cm from a year on (a disorder of growth can make it real), and is unusual', () => {
-    // 45 at 3 years: 45 cm, used, unusual; 100 at 10 years (floor 107): 100 cm, used, unusual.
+    // 45 at 3 years: 45 cm, used, unusual; 100 at 10 years (floor 108): 100 cm, used, unusual.
     for (const text of ['patient age 3 y, height 45', 'patient age 10 y, height 100']) {
       expect(findings(text)).toEqual(['PN302 1']);
       const s = checkNote(text).analysis.timeline.header.find((v) => v.fieldId === 'height')!;
@@ -185,5 +187,65 @@ describe('the floor at the child/adult boundary (18 years) does not jump', () =>
     // 12 y: 116 cm (WHO 2007 boys' rows, as above); 10 y: 107 cm.
     expect(findings('patient age 12 y, height 117 cm')).toEqual([]);
     expect(findings('patient age 12 y, height 115 cm')).toEqual(['PN302 1']);
+  });
+});
+
+// An ex-preterm child past 2 years. The age is corrected in full for a birth 16 weeks early until a
+// corrected age of 3 years, then less and less over a year (our choice, no source), to none at about
+// 4 years 4 months (`correctionWeeksAt`). Read (December 2026, session 32): a growth-chart training
+// module of the US Maternal and Child Health Bureau, page 10 ("Using corrected age to plot measures for
+// low birthweight and premature infants", mirrored on hitpages.com): corrected age until 2 years for
+// most preterm infants, often until 3 years for a birth weight under 1,000 g; and the abstract of
+// Elmrayed S, Dai S, Lodha A, Kumar M, Fenton T. Preterm growth assessment: the latest findings on age
+// correction. J Perinatol 2025;45(5):607–615 (PubMed 39820765): correction needed for all growth
+// measures through 36 months of corrected age for children born before 32 weeks. WHO 2006 girls'
+// rows as read above: 1 y 66.28, 2 y 76.05, 3 y 83.63 cm at −3 SD. Invented patients.
+describe('an ex-preterm child\'s height past 2 years (`correctionWeeksAt`)', () => {
+  it('1 y 11 m, 2 y, 2 y 1 m and 3 y: corrected in full, so no floor rises at 2 years', () => {
+    // 1 y 11 m: corrected 1.610 y, 66.28 + 0.610 × (76.05 − 66.28) = 72.24 − 10 → 62.
+    // 2 y: corrected 1.693 y, 73.05 − 10 → 63. 2 y 1 m: corrected 1.777 y, 73.87 − 10 → 63.
+    // 3 y: corrected 2.693 y, 76.05 + 0.693 × (83.63 − 76.05) = 81.31 − 10 → 71.
+    for (const years of [23 / 12, 2, 25 / 12, 3]) expect([years, correctionWeeksAt(years)]).toEqual([years, EARLIEST_BIRTH_WEEKS_BEFORE_TERM]);
+    expect([childHeightMinCm(23 / 12), childHeightMinCm(2), childHeightMinCm(25 / 12), childHeightMinCm(3)]).toEqual([62, 63, 63, 71]);
+    // Stopped at 2 years, 2 y 1 m would be judged at 2.083 y: 76.05 + 0.083 × 7.58 = 76.68 − 10 → 66, three
+    // cm above the day before: a toddler born at 24 weeks of 64 cm, usual at 1 y 364 d, unusual at 2 y 1 d.
+    expect(Math.floor(heightForAgeShorterCm(25 / 12, -3)! - CHILD_HEIGHT_MARGIN_CM)).toBe(66);
+    expect([childHeightMinCm(730 / 365.25), childHeightMinCm(731 / 365.25), childHeightMinCm(732 / 365.25)]).toEqual([63, 63, 63]);
+  });
+
+  it('in a note: at the floor usual, a centimetre below it PN302, written in months or years', () => {
+    expect(findings('patient age 23 mo, height 62 cm')).toEqual([]);
+    expect(findings('patient age 23 mo, height 61 cm')).toEqual(['PN302 1']);
+    expect(findings('patient age 2 y, height 63 cm')).toEqual([]);
+    expect(findings('patient age 2 y, height 62 cm')).toEqual(['PN302 1']);
+    expect(findings('patient age 25 mo, height 63 cm')).toEqual([]);
+    expect(findings('patient age 25 mo, height 62 cm')).toEqual(['PN302 1']);
+    expect(findings('patient age 3 y, height 71 cm')).toEqual([]);
+    expect(findings('patient age 3 y, height 70 cm')).toEqual(['PN302 1']);
+  });
+
+  it('tapers from a corrected age of 3 years to none a year later, the corrected age rising every day', () => {
+    const taperFrom = CORRECTED_IN_FULL_UNTIL_YEARS + (EARLIEST_BIRTH_WEEKS_BEFORE_TERM * 7) / 365.25;
+    expect(taperFrom).toBeCloseTo(3.307, 3);
+    expect(correctionWeeksAt(taperFrom)).toBe(16);
+    expect(correctionWeeksAt(taperFrom + 0.5)).toBeCloseTo(8, 9);
+    expect(correctionWeeksAt(taperFrom + 1)).toBe(0);
+    expect(correctionWeeksAt(10)).toBe(0);
+    let before = -Infinity;
+    for (let day = 0; day <= 18 * 365.25; day++) {
+      const years = day / 365.25;
+      const corrected = years - (correctionWeeksAt(years) * 7) / 365.25;
+      expect([day, corrected > before]).toEqual([day, true]);
+      before = corrected;
+    }
+  });
+
+  it('no step: from 16 weeks after birth to 18 years the floor rises by a centimetre a day at most, and never falls', () => {
+    let previous = childHeightMinCm(113 / 365.25);
+    for (let day = 114; day <= 18 * 365.25; day++) {
+      const floor = childHeightMinCm(day / 365.25);
+      expect([day, floor - previous >= 0 && floor - previous <= 1]).toEqual([day, true]);
+      previous = floor;
+    }
   });
 });

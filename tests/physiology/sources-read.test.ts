@@ -35,6 +35,12 @@
  * CO2 gradient; the compliance of a healthy chest wall and respiratory system; a later form of Buck's
  * vapour pressure equation; the Safe Harbor list of identifiers; the Venturi settings and their flows.
  *
+ * Read in December 2026 (session 32), beside its tests in tests/core/child-height.test.ts: how long
+ * growth is judged at an age corrected for prematurity, in a growth-chart training module of the US
+ * Maternal and Child Health Bureau (page 10, mirrored on hitpages.com: until 2 years for most, often
+ * until 3 for a birth weight under 1,000 g) and in the abstract of Elmrayed et al., J Perinatol
+ * 2025;45(5):607–615 (PubMed 39820765: through 36 months of corrected age before 32 weeks).
+ *
  * Read in December 2026 (session 31), each beside its test at the end of this file: the SpO2 targets
  * of BTS 2017 and TSANZ 2015; the general form of the base excess and a standardisation of it (Lang &
  * Zander 2002), and the CO2 solubility of the Henderson–Hasselbalch form as two sources give it; how

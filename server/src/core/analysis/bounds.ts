@@ -72,19 +72,58 @@ function childSizeBounds(id: string): Bounds {
 const CHILD_HEIGHT = childSizeBounds('height');
 const CHILD_WEIGHT = childSizeBounds('weight');
 
+const DAYS_PER_YEAR = 365.25;
+
 /**
  * How many weeks before term (40 weeks) a child's height allows for: a birth at 24 weeks of
  * gestation, the earliest of the very preterm reference read (`intergrowth-very-preterm-2016` in
- * physiology/growth.ts). A child's age is corrected by it before the height is judged, at every
- * age: common practice corrects until about 2 years (from memory), but kept on, the floor is
- * continuous at a year and lower (more lenient) after it, by less than the growth of 16 weeks.
+ * physiology/growth.ts). A child's age is corrected by it before the height is judged, in full until
+ * a corrected age of CORRECTED_IN_FULL_UNTIL_YEARS, then less and less (`correctionWeeksAt`).
  */
 export const EARLIEST_BIRTH_WEEKS_BEFORE_TERM = 16;
+
+/**
+ * The corrected age (years) until which the age is corrected in full: 3 years. Read (December 2026,
+ * session 32): a growth-chart training module of the US Maternal and Child Health Bureau (page 10,
+ * "Using corrected age to plot measures for low birthweight and premature infants", as mirrored on
+ * hitpages.com) corrects until 2 years for most preterm infants and often until 3 years for a birth
+ * weight under 1,000 g, which a birth at 24 weeks is; and Elmrayed S, Dai S, Lodha A, Kumar M,
+ * Fenton T. Preterm growth assessment: the latest findings on age correction. J Perinatol
+ * 2025;45(5):607–615 (abstract read on PubMed, 39820765) finds correction needed for all growth
+ * measures through 36 months of corrected age for children born before 32 weeks. Stopped at 2 years
+ * (chronological), a 2-year-old born at 24 weeks would be judged at her full age a day after being
+ * judged at 1.69 years: a floor 3 to 4 cm higher overnight, and PN302 for an ex-preterm toddler who
+ * has not caught up.
+ */
+export const CORRECTED_IN_FULL_UNTIL_YEARS = 3;
+
+/**
+ * Over how many years (of age, after the full correction) the correction falls to none, in a
+ * straight line: 1 (our choice, no source). The floor then rises a little faster than the −3 SD
+ * for a year, with no step (the corrected age never goes back, `correctionWeeksAt`), and from about
+ * 4 years 4 months on it is the −3 SD at the child's own age, less the margin: a school-age child
+ * is no longer given the growth of 16 weeks that an ex-preterm toddler needs.
+ */
+export const CORRECTION_TAPER_YEARS = 1;
+
+/**
+ * The weeks a child's age of `ageYears` (chronological) is corrected by before the height is
+ * judged: EARLIEST_BIRTH_WEEKS_BEFORE_TERM until the corrected age is CORRECTED_IN_FULL_UNTIL_YEARS
+ * (about 3 years 4 months of age), then down in a straight line to none CORRECTION_TAPER_YEARS
+ * later (about 4 years 4 months). The corrected age, age less these weeks, rises with age at every
+ * age (by 1.31 days a day in the taper), so no height goes from usual to unusual and back.
+ */
+export function correctionWeeksAt(ageYears: number): number {
+  const full = EARLIEST_BIRTH_WEEKS_BEFORE_TERM;
+  const taperFrom = CORRECTED_IN_FULL_UNTIL_YEARS + (full * 7) / DAYS_PER_YEAR;
+  if (!(ageYears > taperFrom)) return full;
+  const left = 1 - (ageYears - taperFrom) / CORRECTION_TAPER_YEARS;
+  return left > 0 ? full * left : 0;
+}
 
 /** How far below the −3 SD of the shorter sex at the corrected age a child's height floor lies, cm: our margin, no source. */
 export const CHILD_HEIGHT_MARGIN_CM = 10;
 
-const DAYS_PER_YEAR = 365.25;
 
 /** The last day of age (corrected) read on the first year's rows (`lengthForAgeGirlsCm`); after it the rows of whole years. */
 const FIRST_YEAR_LAST_DAY = 365;
@@ -105,25 +144,27 @@ export const ADULT_HEIGHT_USUAL_MIN_CM: number = (() => {
  * The shortest usual height (cm) of a child of `ageYears` (under ADULT_FROM_YEARS), in whole cm
  * rounded down: until EARLIEST_BIRTH_WEEKS_BEFORE_TERM weeks after birth, the −3 SD length of a
  * girl born at 24 weeks (24.0 cm, INTERGROWTH-21st); from then on the larger of that and the
- * −3 SD at the age so corrected, less CHILD_HEIGHT_MARGIN_CM: in the first year of corrected age her
+ * −3 SD at the age so corrected (by `correctionWeeksAt`: in full to a corrected age of 3 years, none
+ * from about 4 years 4 months), less CHILD_HEIGHT_MARGIN_CM: in the first year of corrected age her
  * length-for-age (WHO Child Growth Standards 2006, monthly rows), after it the height-for-age by
  * whole year of the sex shorter there, straight between them (`heightForAgeShorterCm`: the 2006
  * standards to 4 years, the WHO 2007 reference from 5 to 19, the boys' at 10 to 13), which starts
  * on the first year's last row, so the floor does not drop there. The shorter sex, the earliest
  * birth and a margin of some 1.5 to 6 SD more, so that no real child's height is below it short of
  * a disorder of growth: 24 cm at birth, 33 cm at 16 weeks, 46 cm at 8 months, 52 cm at a year, 63
- * cm at 2 years, 83 cm at 5, 107 cm at 10, 116 cm at 12; never above an adult's usual minimum
- * (ADULT_HEIGHT_USUAL_MIN_CM, 120 cm), which it reaches at about 12 years 8 months (day 4,629) and
+ * cm at 2 years, 71 cm at 3, 84 cm at 5, 108 cm at 10, 117 cm at 12; never above an adult's usual
+ * minimum (ADULT_HEIGHT_USUAL_MIN_CM, 120 cm), which it reaches at about 12 years 4 months (day 4,517) and
  * keeps to ADULT_FROM_YEARS, so it does not drop at 18 (uncapped it was 132 cm at 17, and a
  * 17-year-old of 125 cm was unusual where an 18-year-old was not). A height below it is unusual
  * (PN302, with a word on disorders of growth), and under INFANT_UNTIL_YEARS no height at all for a
  * bare number (an 8-month-old's `height 10` is not offered inches, 25 cm). It was 30 cm at every
  * age under a year (from memory), which flagged a real preterm newborn and passed a 10-month-old
  * of 31 cm; and from a year on there was none short of the field's hard minimum (20 cm), which
- * passed a 3-year-old of 45 cm.
+ * passed a 3-year-old of 45 cm. Corrected in full at every age, it was lower by the growth of
+ * 16 weeks past 4 years too (83 cm at 5, 107 at 10, 116 at 12, 120 from day 4,629).
  */
 export function childHeightMinCm(ageYears: number): number {
-  const correctedDays = ageYears * DAYS_PER_YEAR - EARLIEST_BIRTH_WEEKS_BEFORE_TERM * 7;
+  const correctedDays = ageYears * DAYS_PER_YEAR - correctionWeeksAt(ageYears) * 7;
   const line = correctedDays < 0 ? null
     : correctedDays <= FIRST_YEAR_LAST_DAY ? lengthForAgeGirlsCm(correctedDays, -3)
     : heightForAgeShorterCm(Math.max(1, correctedDays / DAYS_PER_YEAR), -3);

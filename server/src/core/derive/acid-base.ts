@@ -96,13 +96,27 @@ function rangeDecimals(range: { readonly low: number; readonly high: number }, d
  * mmHg take decimals that keep them apart (`paco2ApartFromRange`): `2.89 kPa (21.7 mmHg)` beside
  * `21.8–25.8 mmHg`, not `(22 mmHg)` beside `22–26`.
  */
-function paco2RangeDecimals(c: DeriveContext, r: { readonly low: number; readonly high: number }): { decimals: number; kpaDecimals: number } | { decimals: number } {
+function paco2RangeDecimals(c: DeriveContext, r: { readonly low: number; readonly high: number }): { decimals: number; kpaDecimals: number; outwardEnd: 'low' | 'high' | undefined } | { decimals: number } {
   const paco2 = c.field('paco2')?.value;
   if (paco2 === undefined) return { decimals: 0 };
   const resolution = c.writtenResolutionMmhg('paco2');
   let decimals = GAS_MMHG.rangeDecimals(r.low, r.high, paco2, resolution);
   if (resolution > 0) decimals = Math.max(decimals, paco2ApartFromRange(paco2, resolution, r));
-  return { decimals, kpaDecimals: GAS_KPA.rangeDecimals(r.low, r.high, paco2, resolution) };
+  return { decimals, kpaDecimals: GAS_KPA.rangeDecimals(r.low, r.high, paco2, resolution), outwardEnd: paco2OnEnd(paco2, resolution, r) };
+}
+
+/**
+ * The end of an expected range that a PaCO2 written in kPa is on at the resolution it was written
+ * with (`sideOf` gives 0), which the reading counts it within: its mmHg is shown rounded away from
+ * the range's middle (`formatOutward`), since the PaCO2's own mmHg in brackets can be just beyond
+ * it (4.7 kPa is 35.25 mmHg, on a low end of 35.55 mmHg: `(35 mmHg)` beside `35–40`, not `36–40`).
+ * Undefined for a PaCO2 written in mmHg, which is on an end only where it equals it.
+ */
+export function paco2OnEnd(paco2: number, resolution: number, r: { readonly low: number; readonly high: number }): 'low' | 'high' | undefined {
+  if (!(resolution > 0)) return undefined;
+  if (sideOf(paco2, r.low, resolution) === 0) return 'low';
+  if (sideOf(paco2, r.high, resolution) === 0) return 'high';
+  return undefined;
 }
 
 /**

@@ -44,6 +44,12 @@ export interface ValueExtras {
    * classification puts it (`GasWords.rangeDecimals`).
    */
   readonly kpaDecimals?: number | undefined;
+  /**
+   * The end of the range that the measured value it is read against is on at the resolution that
+   * value was written with (`sideOf` gives 0): shown in mmHg rounded away from the range's middle
+   * (`formatOutward`), as the value's own mmHg may be just beyond it (a PaCO2 written in kPa).
+   */
+  readonly outwardEnd?: 'low' | 'high' | undefined;
 }
 
 const NO_EXTRAS: ValueExtras = {};
@@ -730,6 +736,8 @@ class ComputedValue implements DerivedValue {
   readonly template: string;
   /** See `ValueExtras.kpaDecimals`; null: the unit's own. */
   readonly kpaDecimals: number | null;
+  /** See `ValueExtras.outwardEnd`; null: both ends rounded as usual. */
+  readonly outwardEnd: 'low' | 'high' | null;
   // ES private fields: not own properties, so comparing two values ignores whether they were built.
   #shown: string | null = null;
   /** The term other formulas read this value as (most read it under one name, several times a gas). */
@@ -755,6 +763,7 @@ class ComputedValue implements DerivedValue {
     this.line = line;
     this.template = extras.formula ?? def.formula;
     this.kpaDecimals = extras.kpaDecimals ?? null;
+    this.outwardEnd = extras.outwardEnd ?? null;
   }
 
   /** This value as an input of another formula, under `name`. */

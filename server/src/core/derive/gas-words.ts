@@ -66,23 +66,14 @@ export class GasWords {
     return `${formatNumber(kpaFromMmhg(low), d)}–${formatNumber(kpaFromMmhg(high), d)} kPa`;
   }
 
-  /**
-   * A measured pressure read against the end of a range it is outside, with `range`'s ends as shown
-   * beside it: the value keeps its side of the end as shown, not only of the end as computed (18.5
-   * below 19.2 is not written `19 mmHg` below a range shown from `19`).
-   */
-  outside(mmHg: number, resolution: number, low: number, high: number, end: number): string {
-    const d = this.rangeDecimals(low, high, mmHg, resolution);
-    // The end as shown, in mmHg: what `value` compares with (in kPa it converts it back).
-    const shownEnd = this.kpa ? Number(formatNumber(kpaFromMmhg(end), d)) * MMHG_PER_KPA : Number(formatNumber(end, d));
-    return this.measured(mmHg, resolution, shownEnd);
-  }
-
   /** The decimals of `range`'s ends (in the unit shown): see `range`. The derived expected PaCO2 shows its ends with them too. */
   rangeDecimals(low: number, high: number, observed: number, resolution: number): number {
     const kpa = this.kpa;
-    const onLow = sideOf(observed, low, resolution) === 0;
-    const onHigh = sideOf(observed, high, resolution) === 0;
+    // On an end at the resolution of a value written in kPa. A value written in mmHg (resolution 0)
+    // is on an end only where it equals it on paper, and keeps it as a threshold: the end then
+    // takes the decimals that show it equal (18.1 within 14.1–18.1 mmHg, not 14–18).
+    const onLow = resolution > 0 && sideOf(observed, low, resolution) === 0;
+    const onHigh = resolution > 0 && sideOf(observed, high, resolution) === 0;
     // In kPa, an end the value is on takes the decimals the value was written with.
     const base = !kpa ? 0 : onLow || onHigh ? kpaDecimalsOf(resolution) : KPA_DECIMALS;
     const at = (t: number) => (kpa ? kpaFromMmhg(t) : t);

@@ -11,7 +11,7 @@ import { decimalsAgainst, formatAgainst, formatAgeYears, formatNumber, formatSho
 import { carriedFromText, kpaFromMmhg, kpaNumber, kpaResolutionMmhg, showsKpa, statedKpaNumber, statedNumber } from '../present';
 import type { StatedValue } from '../analysis/model';
 import { classification, paco2ApartFromRange } from './acid-base';
-import { GAS_KPA, GAS_MMHG, GasWords, offThreshold } from './gas-words';
+import { GAS_KPA, GAS_MMHG, GasWords, kpaDecimalsOf, offThreshold } from './gas-words';
 import { readVenous } from './venous';
 import { allowanceAt, isAboveAlveolar, isAboveInspiredAt, isUnderAdultAge } from './gas-exchange';
 import { SEA_LEVEL_MMHG } from './atmosphere';
@@ -713,7 +713,15 @@ function acidBaseText(cls: AcidBaseClassification, finding: ReadFinding, gas: Ga
   const gapWords = gapKind === null ? '' : ANION_GAP_WORDS[gapKind];
   const limits = NORMAL_LIMITS;
   const phShown = `pH ${formatAgainst(ph, PH_DECIMALS, limits.ph[0], limits.ph[1])}`;
-  const paco2Shown = `PaCO2 ${gas.measured(paco2, basis.co2Resolution, limits.paco2[0], limits.paco2[1], basis.hypercapniaAboveMmhg)}`;
+  const exp = cls.expected;
+  const suspected = finding.suspected;
+  // A PaCO2 read against the range expected for a metabolic disorder is written once for the
+  // sentence, on the side of that range's ends its reading puts it (`paco2BesideRange`): 2.20 kPa
+  // (16.5 mmHg) below 2.22–2.75 kPa, not (17 mmHg) among the gas's numbers first.
+  const paco2Text = exp?.kind === 'respiratory-response'
+    ? paco2BesideRange(gas, paco2, basis.co2Resolution, exp.range, limits.paco2[0], limits.paco2[1], basis.hypercapniaAboveMmhg)
+    : gas.measured(paco2, basis.co2Resolution, limits.paco2[0], limits.paco2[1], basis.hypercapniaAboveMmhg);
+  const paco2Shown = `PaCO2 ${paco2Text}`;
   const hco3Shown = `HCO3 ${formatAgainst(hco3, HCO3_DECIMALS, limits.hco3[0], limits.hco3[1])} mmol/L`;
   const numbers = `${phShown}, ${paco2Shown}, ${hco3Shown}`;
   // The anion gap as the reading names it: `anion gap 26 mmol/L`, `anion gap 23 mmol/L corrected for albumin`.
@@ -745,16 +753,15 @@ function acidBaseText(cls: AcidBaseClassification, finding: ReadFinding, gas: Ga
       text = `Consistent with ${finding.fullyCompensated ? 'a fully compensated ' : ''}${timing}${DISORDER_WORDS[primary]}${gapWords} (${numbers}${gapDetail})`;
     }
   }
-  const exp = cls.expected;
-  const suspected = finding.suspected;
   if (exp?.kind === 'respiratory-response') {
     // The ends of a range are shown with the decimals that keep the observed value outside or inside it, as it is.
     const o = exp.observed;
     const { low, high } = exp.range;
     const range = gas.range(low, high, o, basis.co2Resolution);
     if (cls.compensation === 'appropriate') text += `, with the expected respiratory response (PaCO2 within the expected ${range})`;
-    else if (suspected === 'respiratory-acidosis') text += `; PaCO2 ${gas.outside(o, basis.co2Resolution, low, high, high)} is above the expected ${range}: consistent with an added respiratory acidosis`;
-    else if (suspected === 'respiratory-alkalosis') text += `; PaCO2 ${gas.outside(o, basis.co2Resolution, low, high, low)} is below the expected ${range}: consistent with an added respiratory alkalosis`;
+    // The PaCO2 as the gas's numbers write it, on its side of the end as shown (`paco2BesideRange`).
+    else if (suspected === 'respiratory-acidosis') text += `; PaCO2 ${paco2Text} is above the expected ${range}: consistent with an added respiratory acidosis`;
+    else if (suspected === 'respiratory-alkalosis') text += `; PaCO2 ${paco2Text} is below the expected ${range}: consistent with an added respiratory alkalosis`;
   } else if (exp?.kind === 'metabolic-response') {
     const o = exp.observed;
     const acuteRange = `${rangeAgainst(exp.acute.low, exp.acute.high, 0, o)} mmol/L`;
@@ -794,6 +801,38 @@ function acidBaseText(cls: AcidBaseClassification, finding: ReadFinding, gas: Ga
     text += `; also consistent with an added ${extra.map((d) => DISORDER_WORDS[d]).join(' and ')}${why.length > 0 ? ` (${why.join(', ')})` : ''}`;
   }
   return `${text}.`;
+}
+
+/**
+ * A measured PaCO2 (mmHg) beside the PaCO2 expected for a metabolic disorder, `r`, as the acid–base
+ * reading writes it: as `GasWords.measured` does against the thresholds `t1`–`t3`, and with the
+ * decimals that keep it on its side of each end of `r` as shown beside it (or equal to an end it
+ * equals): in kPa the ends as the reading writes them (`GasWords.range`), in mmHg, in brackets or
+ * not, as the derived range shows them (`numberText`). An end the PaCO2 is on at the resolution it
+ * was written with in kPa pushes nothing apart: its kPa shows as the PaCO2 does, and its mmHg is
+ * rounded outward (`DerivedValue.outwardEnd`). In an mmHg note, 17.5 within 13.5–17.5 mmHg is
+ * written 17.5, not 18; in a kPa note, 2.20 kPa (16.5 mmHg) below 2.22–2.75 kPa (16.7–20.7 mmHg),
+ * not (17 mmHg).
+ */
+function paco2BesideRange(gas: GasWords, v: number, resolution: number, r: { readonly low: number; readonly high: number }, t1: number, t2: number, t3: number): string {
+  const a = offThreshold(v, t1, resolution);
+  const b = offThreshold(v, t2, resolution);
+  const c = offThreshold(v, t3, resolution);
+  const onLow = resolution > 0 && sideOf(v, r.low, resolution) === 0;
+  const onHigh = resolution > 0 && sideOf(v, r.high, resolution) === 0;
+  // The mmHg ends as the derived range shows them (`paco2RangeDecimals` in acid-base.ts).
+  const dm = Math.max(GAS_MMHG.rangeDecimals(r.low, r.high, v, resolution), resolution > 0 ? paco2ApartFromRange(v, resolution, r) : 0);
+  const mLow = onLow ? NaN : Number(formatNumber(r.low, dm));
+  const mHigh = onHigh ? NaN : Number(formatNumber(r.high, dm));
+  const mmHg = `${formatNumber(v, Math.max(decimalsAgainst(v, 0, a, b, c), decimalsAgainst(v, 0, mLow, mHigh)))} mmHg`;
+  if (!gas.kpa) return mmHg;
+  const kv = kpaFromMmhg(v);
+  const dk = gas.rangeDecimals(r.low, r.high, v, resolution);
+  const kLow = onLow ? NaN : Number(formatNumber(kpaFromMmhg(r.low), dk));
+  const kHigh = onHigh ? NaN : Number(formatNumber(kpaFromMmhg(r.high), dk));
+  const base = kpaDecimalsOf(resolution);
+  const kpaPlaces = Math.max(decimalsAgainst(kv, base, kpaFromMmhg(a), kpaFromMmhg(b), kpaFromMmhg(c)), decimalsAgainst(kv, base, kLow, kHigh));
+  return `${formatNumber(kv, kpaPlaces)} kPa (${mmHg})`;
 }
 
 /**

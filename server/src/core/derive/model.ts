@@ -69,6 +69,12 @@ export interface DerivedValue {
    * (`GasWords.rangeDecimals`). Null: the unit's own (`KPA_DECIMALS`).
    */
   readonly kpaDecimals: number | null;
+  /**
+   * The end of the range the measured value it is read against is on at the resolution it was
+   * written with, shown in mmHg rounded away from the range's middle (`formatOutward`): the mmHg of
+   * a PaCO2 written in kPa can be just beyond an end the reading counts it within. Null: none.
+   */
+  readonly outwardEnd: 'low' | 'high' | null;
 }
 
 /**

@@ -16,12 +16,19 @@ import { isGasPressureValue, type DerivedValue, type Term } from '../derive/mode
 import { derivedDef } from '../derive/registry';
 import { reproducingExtra, reproducingSubstitution, termWithExtra } from '../derive/reproduce';
 import { isKpaField, KPA_DECIMALS, kpaFromMmhg, kpaNumber, showsKpa, statedInKpa, statedKpaNumber, statedNumber } from '../present';
-import { formatNumber } from '../util/format';
+import { formatNumber, formatOutward } from '../util/format';
 import { cautionLine, code, escapeMarkdown, paragraphs } from './markdown';
 
-/** A value's number, or its span (`23–27`), in its own unit (mmHg for a gas pressure). */
+/**
+ * A value's number, or its span (`23–27`), in its own unit (mmHg for a gas pressure). An end the
+ * value read against it is on at its written resolution is rounded away from the middle
+ * (`DerivedValue.outwardEnd`): `35–40` beside a PaCO2 of 4.7 kPa (35 mmHg) counted within 35.55–39.55.
+ */
 export function numberText(d: DerivedValue): string {
-  return d.range ? `${formatNumber(d.range.low, d.decimals)}–${formatNumber(d.range.high, d.decimals)}` : formatNumber(d.value, d.decimals);
+  const r = d.range;
+  if (!r) return formatNumber(d.value, d.decimals);
+  const out = d.outwardEnd;
+  return `${out === 'low' ? formatOutward(r.low, d.decimals, 'low') : formatNumber(r.low, d.decimals)}–${out === 'high' ? formatOutward(r.high, d.decimals, 'high') : formatNumber(r.high, d.decimals)}`;
 }
 
 /** The same in kPa (a gas pressure), with the value's own kPa decimals where it has them (an expected range's ends beside the PaCO2). */
@@ -159,7 +166,9 @@ export function substitutedUnitNote(d: DerivedValue, tp: Timepoint | null = null
   if (!touchesKpa(d, tp) || holdsInKpa(d)) return null;
   const converted: string[] = [];
   // The mmHg numbers as the formula shows them: with the decimals it needs to give its value.
-  const extra = reproducingExtra(d.template, d.inputs, substitute, (t, e) => termWithExtra(t.value, t.decimals, e), numberText(d), d.decimals);
+  // Against the result as computed (the formula's own rounding, as `d.substituted` writes it).
+  const computed = d.range ? `${formatNumber(d.range.low, d.decimals)}–${formatNumber(d.range.high, d.decimals)}` : formatNumber(d.value, d.decimals);
+  const extra = reproducingExtra(d.template, d.inputs, substitute, (t, e) => termWithExtra(t.value, t.decimals, e), computed, d.decimals);
   for (const t of d.inputs) {
     if (!isGasTerm(t)) continue;
     const input = statedOfTerm(t, tp);

@@ -68,10 +68,13 @@ export function decimalsAgainst(value: number, decimals: number, t1: number, t2 
 /** Whether `value` shown with `d` decimals is on the same side of `t` as it is (NaN: no threshold). */
 function keepsSide(value: number, exact: number, d: number, t: number): boolean {
   if (Number.isNaN(t)) return true;
+  // The threshold as on paper too: a PaCO2 of 2.20 kPa converted to mmHg and back is
+  // 2.1999999999999997, beside which an end of 2.2198 kPa shown as 2.2 would seem above it.
+  const onPaper = Math.round(t * 1e9) / 1e9;
   // Rounding moves a number by half a unit of its last decimal at most: far enough away, no text is needed.
-  if (Math.abs(exact - t) > 0.6 * 10 ** -d) return true;
+  if (Math.abs(exact - onPaper) > 0.6 * 10 ** -d) return true;
   const shown = Number(formatNumber(value, d));
-  return Math.sign(shown - t) === Math.sign(exact - t);
+  return Math.sign(shown - onPaper) === Math.sign(exact - onPaper);
 }
 
 /** `value` with `decimals`, or more where fewer would put it on the wrong side of a threshold (up to four). */
@@ -92,6 +95,20 @@ export function decimalsApart(value: number, decimals: number, end: number): num
     if (Math.sign(Number(formatNumber(end, d)) - Number(formatNumber(value, d))) === side) return d;
   }
   return Math.max(decimals, 6);
+}
+
+/**
+ * `value` with `decimals`, rounded away from the middle of a range it is the `end` of (down for its
+ * low end, up for its high end): the end of an expected PaCO2 that a PaCO2 written in kPa is on at
+ * the resolution it was written with, in mmHg, where the PaCO2's own mmHg can be just beyond it
+ * (4.7 kPa, 35.25 mmHg, on a low end of 35.55: `35–40 mmHg`, not `36–40` beside `(35 mmHg)`).
+ */
+export function formatOutward(value: number, decimals: number, end: 'low' | 'high'): string {
+  if (!Number.isFinite(value)) return '—';
+  const d = decimals < 0 ? 0 : decimals > 6 ? 6 : Math.trunc(decimals);
+  // On paper first (see forBand): 36.000000000000004 is 36, not 37, rounded up.
+  const units = Math.round(value * SCALE[d]! * 1e9) / 1e9;
+  return formatNumber((end === 'low' ? Math.floor(units) : Math.ceil(units)) / SCALE[d]!, d);
 }
 
 /** `low–high`, both ends with one number of decimals: the fewest that keep `observed` on its side of each. */
