@@ -43,6 +43,9 @@
  * model atmosphere against the pressures measured on Everest; the arterial O2 content and delivery; the
  * normal a/A ratio; the oscillation frequencies of HFOV in adults; the oldest verified age and the
  * height of the highest summit, behind the bounds of age and altitude.
+ *
+ * Read in December 2026 (session 32), beside its test at the end of this file: the expired tidal
+ * volumes during NIV of Carteaux 2016, in its abstract.
  */
 import { describe, expect, it } from 'vitest';
 import { VT_PER_KG_HARD_MAX, VT_PER_KG_USUAL } from '../../server/src/core/analysis/per-kg-volume';
@@ -62,7 +65,7 @@ import {
   SOURCES as ACID_BASE,
 } from '../../server/src/core/physiology/acid-base';
 import { alveolarPo2Full, alveolarPo2Simplified, arterialAlveolarRatio, OSI_MAX_SPO2_PERCENT, oxygenationIndex, oxygenSaturationIndex, SOURCES as GAS_EXCHANGE } from '../../server/src/core/physiology/gas-exchange';
-import { SOURCES as MECHANICS } from '../../server/src/core/physiology/mechanics';
+import { NIV_VT_MEDIAN_ML_PER_KG, SOURCES as MECHANICS } from '../../server/src/core/physiology/mechanics';
 import { VENTURI_PERCENT } from '../../server/src/core/syntax/parser';
 import { METRES_PER_FOOT, MMHG_PER_CMH2O, MMHG_PER_KPA, PA_PER_CMH2O, PA_PER_MMHG, SOURCES as UNIT_SOURCES } from '../../server/src/core/physiology/units';
 import { deltaRatioBand } from '../../server/src/core/physiology/acid-base';
@@ -845,5 +848,27 @@ describe('the bounds of age and altitude against the extremes as read', () => {
     expect(EVEREST_SUMMIT_M).toBeLessThanOrEqual(altitude.hard!.max!);
     expect(EVEREST_SUMMIT_M).toBeGreaterThan(altitude.soft!.max!);
     expect(altitude.boundsSource).toContain('8,848 m, read in the abstract of West JB et al.');
+  });
+});
+
+// The expired tidal volume during NIV for de novo acute hypoxaemic respiratory failure, as read in the abstract of
+// Carteaux G et al., Crit Care Med 2016, "Failure of noninvasive ventilation for de novo acute hypoxemic respiratory
+// failure: role of tidal volume" (PMID 26584191), in a reproduction of its PubMed record (an address 47.251.13.51,
+// /26584191; read December 2026, session 32): averaged over the NIV sessions, median 10.6 mL/kg PBW (IQR 9.6–12.0) in
+// the patients in whom NIV failed against 8.5 (7.6–10.2) in those in whom it succeeded, and independently associated
+// with NIV failure. The abstract's cut-off (about 9.5 mL/kg PBW, from memory) was past the part read: no threshold.
+const CARTEAUX_2016_MEDIANS = { failed: 10.6, succeeded: 8.5 } as const;
+
+describe('VT/PBW under NIV against Carteaux 2016 as read', () => {
+  it('the medians shown beside VT/PBW under NIV are those read', () => {
+    expect(NIV_VT_MEDIAN_ML_PER_KG).toEqual(CARTEAUX_2016_MEDIANS);
+    const vt = derived('patient sex male, height 175 cm\n@ 08:00\noxygen niv ipap 14, epap 6, fio2 0.4\nvent vt 600', 'vt_per_kg_pbw');
+    expect(vt?.notes[1]).toContain('a median of 10.6 mL/kg where NIV failed, 8.5 where it succeeded');
+    expect(vt?.notes[1]).toContain('was associated with failure of NIV');
+  });
+
+  it('the citation says where it was read, and that no threshold was read', () => {
+    expect(MECHANICS['carteaux-2016']).toContain('read in its abstract, in a reproduction of its PubMed record');
+    expect(MECHANICS['carteaux-2016']).toContain('was not read, so Pneumark gives no threshold of it');
   });
 });
