@@ -275,7 +275,9 @@ const CASES: readonly TimeCase[] = [
     },
     absent: ['mechanical_power'],
     readings: { 'oxygenation-band': 'P/F 120 mmHg with EPAP 8 cmH2O: below the 200–300 mmHg oxygenation band' },
-    fires: ['PN403'],
+    // VT/PBW 8.30 is shown, but under NIV the volume is the patient's own breath: the 8 mL/kg limit of
+    // a ventilator's breath (ARDS Network 2000) is not applied.
+    silent: ['PN403'],
   },
   {
     name: 'a vent line with settings ends NIV: the NIV line\'s FiO2 is not the ventilator\'s, and is asked for on the vent line',

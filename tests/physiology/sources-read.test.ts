@@ -58,6 +58,8 @@
  * nasal HFOV; the citation of Roca and coauthors 2016. Not found in that session (still from memory):
  * Mellemgaard's rule, Madias 1979, the usual pressure control of 10–25 cmH2O, which PEEP Amato 2015
  * measured driving pressure from.
+ * Also in session 32, beside its test at the end of this file: the expired tidal volumes during NIV
+ * of Carteaux 2016, in its abstract.
  */
 import { describe, expect, it } from 'vitest';
 import { VT_PER_KG_HARD_MAX, VT_PER_KG_USUAL } from '../../server/src/core/analysis/per-kg-volume';
@@ -77,7 +79,7 @@ import {
   SOURCES as ACID_BASE,
 } from '../../server/src/core/physiology/acid-base';
 import { alveolarPo2Full, alveolarPo2Simplified, arterialAlveolarRatio, OSI_MAX_SPO2_PERCENT, oxygenationIndex, oxygenSaturationIndex, SOURCES as GAS_EXCHANGE } from '../../server/src/core/physiology/gas-exchange';
-import { SOURCES as MECHANICS } from '../../server/src/core/physiology/mechanics';
+import { NIV_VT_MEDIAN_ML_PER_KG, SOURCES as MECHANICS } from '../../server/src/core/physiology/mechanics';
 import { VENTURI_PERCENT } from '../../server/src/core/syntax/parser';
 import { METRES_PER_FOOT, MMHG_PER_CMH2O, MMHG_PER_KPA, PA_PER_CMH2O, PA_PER_MMHG, SOURCES as UNIT_SOURCES } from '../../server/src/core/physiology/units';
 import { deltaRatioBand } from '../../server/src/core/physiology/acid-base';
@@ -1023,5 +1025,27 @@ describe('the ROX index: the citation of 2016 as read', () => {
     expect(source).toContain('J Crit Care 2016');
     expect(source).toContain('10.1016/j.jcrc.2016.05.022');
     expect(source).toContain('the volume and pages from memory');
+  });
+});
+
+// The expired tidal volume during NIV for de novo acute hypoxaemic respiratory failure, as read in the abstract of
+// Carteaux G et al., Crit Care Med 2016, "Failure of noninvasive ventilation for de novo acute hypoxemic respiratory
+// failure: role of tidal volume" (PMID 26584191), in a reproduction of its PubMed record (an address 47.251.13.51,
+// /26584191; read December 2026, session 32): averaged over the NIV sessions, median 10.6 mL/kg PBW (IQR 9.6–12.0) in
+// the patients in whom NIV failed against 8.5 (7.6–10.2) in those in whom it succeeded, and independently associated
+// with NIV failure. The abstract's cut-off (about 9.5 mL/kg PBW, from memory) was past the part read: no threshold.
+const CARTEAUX_2016_MEDIANS = { failed: 10.6, succeeded: 8.5 } as const;
+
+describe('VT/PBW under NIV against Carteaux 2016 as read', () => {
+  it('the medians shown beside VT/PBW under NIV are those read', () => {
+    expect(NIV_VT_MEDIAN_ML_PER_KG).toEqual(CARTEAUX_2016_MEDIANS);
+    const vt = derived('patient sex male, height 175 cm\n@ 08:00\noxygen niv ipap 14, epap 6, fio2 0.4\nvent vt 600', 'vt_per_kg_pbw');
+    expect(vt?.notes[1]).toContain('a median of 10.6 mL/kg where NIV failed, 8.5 where it succeeded');
+    expect(vt?.notes[1]).toContain('was associated with failure of NIV');
+  });
+
+  it('the citation says where it was read, and that no threshold was read', () => {
+    expect(MECHANICS['carteaux-2016']).toContain('read in its abstract, in a reproduction of its PubMed record');
+    expect(MECHANICS['carteaux-2016']).toContain('was not read, so Pneumark gives no threshold of it');
   });
 });

@@ -6,7 +6,11 @@ import type { ReadCheckAlias } from '../analysis/read-issues';
 import { pairsAcrossLines, writesFio2 } from '../analysis/timeline';
 import { lineFixesToFixes, toRange, type LineNode, type SyntaxCheckAlias, type SyntaxIssue } from '../syntax/tree';
 import { defineCheck, forHeaderLines, forTimepointIssueLines, type CheckContext, type CheckDef, type CheckDoc, type CheckTag, type TimepointContext } from './check';
-import type { Severity } from '../types';
+import type { Fix, Severity } from '../types';
+import type { ReadIssue } from '../analysis/read-issues';
+import { targetMoveFixes } from './target-move';
+
+const NO_FIXES: readonly Fix[] = [];
 
 const FORMAT_RULE = 'format rule (grammar/README.md)';
 
@@ -34,16 +38,22 @@ function syntaxCheck(code: string, alias: SyntaxCheckAlias, title: string, sever
   });
 }
 
-function readCheck(code: string, alias: ReadCheckAlias, title: string, severity: Severity, tags: readonly CheckTag[], source: string, doc: CheckDoc): CheckDef {
+/**
+ * `moreFixes`: fixes of a finding that need the whole note, not its line alone (the move of an SpO2
+ * target off a patient line to an oxygen line), after those the reader made.
+ */
+function readCheck(code: string, alias: ReadCheckAlias, title: string, severity: Severity, tags: readonly CheckTag[], source: string, doc: CheckDoc, moreFixes?: (ctx: CheckContext, issue: ReadIssue) => readonly Fix[]): CheckDef {
   return defineCheck({
     code, alias, title, severity, tags, doc, source,
     run(ctx) {
       for (const issue of ctx.analysis.timeline.readIssues) {
         if (issue.check !== alias) continue;
+        const fixes = lineFixesToFixes(issue.line, issue.fixes);
+        const more = moreFixes === undefined ? NO_FIXES : moreFixes(ctx, issue);
         ctx.report({
           range: toRange(issue.line, issue.span),
           message: issue.message,
-          fixes: lineFixesToFixes(issue.line, issue.fixes),
+          fixes: more.length === 0 ? fixes : [...fixes, ...more],
           ...(issue.related ? { related: issue.related.map((r) => ({ range: toRange(r.line, r.span), message: r.message })) } : {}),
         });
       }
@@ -159,8 +169,8 @@ function visitHighFlowPercent(ctx: TimepointContext, node: LineNode): void {
 export const unknownKey = readCheck('PN201', 'unknown-key', 'Unknown key', 'error', ['units'], FORMAT_RULE, {
   fires: 'An item key is not one of the keys (or aliases) of its section.',
   example: 'vitals hr 118, rrr 26',
-  fix: 'Use a key of the section; the quick fix offers the nearest ones, and at the start of an oxygen line the nearest device, also for a device of two words with one misspelt (`room aor` → `room air`, both words at once). A key of another line is not misspelt: the message says where it belongs, and no key of another quantity is offered (`hb` on a vitals line is not `hr`), but on a vent line `rr`, common shorthand for the set rate, is offered `rate`, never applied unasked. Words commonly written for a ventilator pressure are offered what they stand for, never applied unasked (`ip`: `pinsp`, then `pip`; `pmax`: `peak`; on an NIV oxygen line `ip` and `ep`: `ipap` and `epap`; at the start of an oxygen line `bipap` or `bpap`: the device `niv`), and ventilator times, the I:E ratio and APRV levels, which have no key (`tinsp`, `ie`, `plow`), are offered none. The target of SIMV written after it with a blank (`mode SIMV PC`, `mode SIMV VC`) is offered, preferred, the one mode word it stands for (`SIMV-PC`, `SIMV-VC`). NIV and CPAP are written on oxygen lines: a vent line that names NIV (`mode NIV`) or holds only their pressures (`ipap`, `epap`, `level`, or `cpap 8`) besides keys an oxygen line takes too (`fio2`, `flow`) is offered, preferred, as that oxygen line (`oxygen niv ipap 16, epap 5`), its other items and comment as written; one that also holds keys only a vent line takes (`vt`, `rate`) is not moved, and the message says why. grammar/README.md lists the keys of each section.',
-});
+  fix: 'Use a key of the section; the quick fix offers the nearest ones, and at the start of an oxygen line the nearest device, also for a device of two words with one misspelt (`room aor` → `room air`, both words at once). A key of another line is not misspelt: the message says where it belongs, and no key of another quantity is offered (`hb` on a vitals line is not `hr`), but on a vent line `rr`, common shorthand for the set rate, is offered `rate`, never applied unasked. Words commonly written for a ventilator pressure are offered what they stand for, never applied unasked (`ip`: `pinsp`, then `pip`; `pmax`: `peak`; on an NIV oxygen line `ip` and `ep`: `ipap` and `epap`; at the start of an oxygen line `bipap` or `bpap`: the device `niv`), and ventilator times, the I:E ratio and APRV levels, which have no key (`tinsp`, `ie`, `plow`), are offered none. The target of SIMV written after it with a blank (`mode SIMV PC`, `mode SIMV VC`) is offered, preferred, the one mode word it stands for (`SIMV-PC`, `SIMV-VC`). NIV and CPAP are written on oxygen lines: a vent line that names NIV (`mode NIV`) or holds only their pressures (`ipap`, `epap`, `level`, or `cpap 8`) besides keys an oxygen line takes too (`fio2`, `flow`) is offered, preferred, as that oxygen line (`oxygen niv ipap 16, epap 5`), its other items and comment as written; one that also holds keys only a vent line takes (`vt`, `rate`) is not moved, and the message says why. An SpO2 target written on a patient or place line (`target 88-92 %`) is offered a move to the oxygen line of the timepoint it applies to (the first timepoint for one before it), after that line\'s items, or to a new oxygen line after the timepoint\'s `@` line where it has none; the line it leaves keeps its other items and their commas. Not offered where that oxygen line already has a target. grammar/README.md lists the keys of each section.',
+}, (ctx, issue) => targetMoveFixes(ctx.analysis, issue.line, issue.span));
 
 export const unknownUnit = readCheck('PN202', 'unknown-unit', 'Unknown unit', 'error', ['units'], FORMAT_RULE, {
   fires: 'The unit after a value is not a unit Pneumark knows.',

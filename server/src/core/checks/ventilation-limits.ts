@@ -7,6 +7,8 @@ import type { DerivedValue } from '../derive/model';
 import { endExpiratoryName, setPlusIntrinsic } from './compliance-reach';
 import { defineCheck, type TimepointContext } from './check';
 import { inHfov } from './oscillation';
+import { ownBreaths } from '../fields/modes';
+import { deviceInForce, noninvasiveSupport } from '../analysis/noninvasive-support';
 
 /** The limits live with the formulas, so the check and the values shown beside it read the same numbers. */
 const VT_PER_KG_LIMIT = LUNG_PROTECTIVE_VT_MAX_ML_PER_KG;
@@ -32,6 +34,20 @@ function baseShown(d: DerivedValue): string {
   return setPlusIntrinsic(d) ? '(set PEEP + intrinsic PEEP)' : endExpiratoryName(d);
 }
 
+/**
+ * Whether the breaths in force are the patient's own under NIV or CPAP (`ownBreaths`: the `CPAP`
+ * mode of a ventilator, or with no mode NIV or CPAP of the oxygen line), where the tidal volume is
+ * no setting and the 8 mL/kg limit of a ventilator's breath is not applied. Not pressure support on
+ * a ventilator: the volume is the patient's, helped by a set pressure through a tube, and lung
+ * protection still applies (the pressure support can be lowered).
+ */
+function breathIsPatientsOwn(ctx: TimepointContext): boolean {
+  const values = ctx.timepoint.values;
+  const mode = values.wordOf('mode');
+  const own = mode !== null ? ownBreaths(mode) : ownBreaths(null, noninvasiveSupport(deviceInForce(values), values));
+  return own === 'niv' || own === 'cpap';
+}
+
 export const tidalVolumeHigh = defineCheck({
   code: 'PN403',
   alias: 'tidal-volume-high',
@@ -39,12 +55,13 @@ export const tidalVolumeHigh = defineCheck({
   severity: 'warning',
   tags: ['physiology'],
   doc: {
-    fires: `The tidal volume is above ${VT_PER_KG_LIMIT} mL per kg of predicted body weight (from the patient's height and sex), the top of the lung-protective range. Not in HFOV, whose oscillations are no conventional breaths.`,
+    fires: `The tidal volume is above ${VT_PER_KG_LIMIT} mL per kg of predicted body weight (from the patient's height and sex), the top of the lung-protective range of invasive ventilation; also under pressure support on a ventilator, where the patient's breath is helped through a tube. Not in HFOV, whose oscillations are no conventional breaths; not under NIV or CPAP (an oxygen line \`niv\` or \`cpap\` with no ventilator mode, or \`mode CPAP\`), where the volume is the patient's own breath and no setting: VT/PBW is still shown there, and under NIV its hover says that a larger expired volume during NIV for de novo hypoxaemic respiratory failure was associated with failure of NIV (Carteaux 2016), with no threshold.`,
     example: 'patient sex female, height 160 cm\n@ 08:00\nvent vt 520 mL, rate 16, peep 5',
     fix: 'Check the height and sex on the patient line and the tidal volume; whether to change the setting is a clinical decision.',
   },
-  source: SOURCES['ardsnet-2000'],
+  source: `${SOURCES['ardsnet-2000']} Under NIV: ${SOURCES['carteaux-2016']}`,
   runTimepoint(ctx) {
+    if (breathIsPatientsOwn(ctx)) return;
     derivedAbove(ctx, 'vt_per_kg_pbw', VT_PER_KG_LIMIT, 'vt', tidalVolumeMessage);
   },
 });

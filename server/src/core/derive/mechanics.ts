@@ -3,6 +3,7 @@ import {
   DRIVING_PRESSURE_FLAG_CMH2O,
   LUNG_PROTECTIVE_VT_MAX_ML_PER_KG,
   MECHANICAL_POWER_MODE,
+  NIV_VT_MEDIAN_ML_PER_KG,
   PBW_REFERENCE_HEIGHT_CM,
   SOURCES,
   airwayResistance,
@@ -19,7 +20,7 @@ import {
 import type { NoninvasiveSupport } from '../analysis/noninvasive-support';
 import { ADULT_FROM_YEARS, defineDerived, withDecimals, type DeriveContext, type Outcome, type Term, type ValueExtras } from './context';
 import { decimalsAgainst, formatAgeYears, formatShort } from '../util/format';
-import { modeFamily } from '../fields/modes';
+import { modeFamily, ownBreaths, type OwnBreaths } from '../fields/modes';
 
 export const minuteVentilation = defineDerived({
   id: 'minute_ventilation',
@@ -146,8 +147,9 @@ export const vtPerKg = defineDerived({
     // Shown beside the 8 mL/kg top of the lung-protective range (PN403): 8.04 as 8.04, not 8.0.
     const decimals = perKg === null ? undefined : decimalsAgainst(perKg, 1, LUNG_PROTECTIVE_VT_MAX_ML_PER_KG);
     // In HFOV the volume is an oscillation's, far below a conventional breath's: the quotient holds,
-    // the lung-protective range of conventional breaths does not apply (nor does PN403).
-    return c.value(perKg, [vt, p], withShortPbw({ notes: c.oscillationBreath() ? OSCILLATION_VOLUME_NOTES : LUNG_PROTECTIVE_NOTES, decimals }, pbwOfShortHeight(c)));
+    // the lung-protective range of conventional breaths does not apply (nor does PN403). Under NIV
+    // or CPAP the volume is the patient's own breath, no setting: shown, not held to a ventilator's limit.
+    return c.value(perKg, [vt, p], withShortPbw({ notes: vtPerKgNotes(c), decimals }, pbwOfShortHeight(c)));
   },
 });
 
@@ -205,6 +207,33 @@ const SET_PLUS_INTRINSIC = '({PEEP} + {PEEPi})';
 
 const LUNG_PROTECTIVE_NOTES: readonly string[] = ['lung-protective target 6 mL/kg (4–8) in the ARDS Network protocol'];
 const OSCILLATION_VOLUME_NOTES: readonly string[] = ['in HFOV the volume of one oscillation, not compared with the lung-protective range of conventional breaths'];
+
+/** Why a tidal volume under NIV or CPAP is not held to the 8 mL/kg of a ventilator's breath (PN403). */
+const OWN_BREATH_BECAUSE = `the patient's own breath, not a ventilator setting: not compared with the ${LUNG_PROTECTIVE_VT_MAX_ML_PER_KG} mL/kg lung-protective limit of invasive ventilation (PN403)`;
+
+/**
+ * The notes of a VT/PBW under NIV (with what a larger expired volume during NIV was associated with,
+ * `carteaux-2016` in physiology/mechanics.ts: medians, no threshold) and under CPAP.
+ */
+const OWN_BREATH_NOTES: Readonly<Record<'niv' | 'cpap', readonly string[]>> = Object.freeze({
+  niv: [
+    `under NIV ${OWN_BREATH_BECAUSE}`,
+    `a larger expired tidal volume during NIV for de novo hypoxaemic respiratory failure was associated with failure of NIV (Carteaux 2016: a median of ${NIV_VT_MEDIAN_ML_PER_KG.failed} mL/kg where NIV failed, ${NIV_VT_MEDIAN_ML_PER_KG.succeeded} where it succeeded)`,
+  ],
+  cpap: [`under CPAP ${OWN_BREATH_BECAUSE}`],
+});
+
+/**
+ * The notes beside a VT/PBW: an oscillation's volume in HFOV; the patient's own breath under NIV or
+ * CPAP (`ownBreaths`, as PN403 reads it); else the lung-protective range, pressure support on a
+ * ventilator included (its tidal volume is the patient's, helped by the ventilator, through a tube:
+ * lung protection still applies).
+ */
+function vtPerKgNotes(c: DeriveContext): readonly string[] {
+  if (c.oscillationBreath()) return OSCILLATION_VOLUME_NOTES;
+  const own = ownBreathsOf(c);
+  return own === 'niv' || own === 'cpap' ? OWN_BREATH_NOTES[own] : LUNG_PROTECTIVE_NOTES;
+}
 
 export const drivingPressureDef = defineDerived({
   id: 'driving_pressure',
@@ -292,13 +321,14 @@ export const complianceDynamicDef = defineDerived({
  * `show` say why where it would have been, and ask for no tidal volume to get it.
  */
 function ownEffort(c: DeriveContext): Outcome | null {
+  const own = ownBreathsOf(c);
+  return own === null ? null : OWN_EFFORT[own];
+}
+
+/** `ownBreaths` (fields/modes.ts) of the mode and the oxygen line in force here. */
+function ownBreathsOf(c: DeriveContext): OwnBreaths | null {
   const mode = c.word('mode');
-  if (mode !== null) {
-    if (modeFamily(mode.word) !== 'spontaneous') return null;
-    return mode.word.toUpperCase() === 'CPAP' ? OWN_EFFORT.cpap : OWN_EFFORT.ps;
-  }
-  const support = c.noninvasiveSupport();
-  return support === null ? null : OWN_EFFORT[support];
+  return mode !== null ? ownBreaths(mode.word) : ownBreaths(null, c.noninvasiveSupport());
 }
 
 const ownEffortBecause = (endExpiratory: string): string =>

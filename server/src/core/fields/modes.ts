@@ -84,6 +84,24 @@ export function familyInForce(mode: string | null | undefined, support: Noninvas
   return support === null ? null : SUPPORT_FAMILY;
 }
 
+/** Whose breaths are in force where the patient breathes with help: pressure support, CPAP or NIV. */
+export type OwnBreaths = 'ps' | 'cpap' | 'niv';
+
+/**
+ * The kind of the patient's own breathing in force (`familyInForce`'s spontaneous family), or null
+ * where the breaths are the ventilator's (or unknown): the mode decides where one is in force (`PS`,
+ * or the `CPAP` mode of a ventilator), else the NIV or CPAP of the oxygen line (`support`). The one
+ * reading of it for the derived values that do not hold under the patient's own effort (the dynamic
+ * compliance) and for the checks whose limit is of a ventilator's breath (PN403).
+ */
+export function ownBreaths(mode: string | null | undefined, support: NoninvasiveSupport | null = null): OwnBreaths | null {
+  if (mode !== null && mode !== undefined) {
+    if (modeFamily(mode) !== 'spontaneous') return null;
+    return mode.toUpperCase() === 'CPAP' ? 'cpap' : 'ps';
+  }
+  return support;
+}
+
 /**
  * The one rule for whether a value of `field` written on a `vent` line is a measurement of its
  * timepoint rather than a setting: the field's row for the family of the breaths in force

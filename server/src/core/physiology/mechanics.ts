@@ -33,6 +33,8 @@ export const SOURCES = Object.freeze({
     'Sinha P, Fauvel NJ, Singh S, Soni N. Ventilatory ratio: a simple bedside measure of ventilation. Br J Anaesth 2009;102(5):692–697: predicted minute ventilation 100 mL/kg/min of predicted body weight and predicted PaCO2 5 kPa (read in its abstract, profiles.wustl.edu).',
   'sinha-2019':
     'Sinha P, Calfee CS, Beitler JR, et al. Physiologic analysis and clinical performance of the ventilatory ratio in acute respiratory distress syndrome. Am J Respir Crit Care Med 2019;199(3):333–341: ventilatory ratio = minute ventilation (mL/min) × PaCO2 (mmHg) / (PBW × 100 × 37.5) (read in its abstract on scilit.net; the journal, volume and pages from memory).',
+  'carteaux-2016':
+    'Carteaux G, Millán-Guilarte T, De Prost N, et al. Failure of noninvasive ventilation for de novo acute hypoxemic respiratory failure: role of tidal volume. Crit Care Med 2016 (PMID 26584191, doi 10.1097/CCM.0000000000001379): in 62 patients given NIV for de novo acute hypoxaemic respiratory failure, the expired tidal volume averaged over the NIV sessions had a median of 9.8 mL/kg PBW (8.1–11.1), was higher in those in whom NIV failed than in those in whom it succeeded (10.6 mL/kg PBW, 9.6–12.0, against 8.5, 7.6–10.2) and was independently associated with NIV failure (read in its abstract, in a reproduction of its PubMed record; the cut-off of about 9.5 mL/kg PBW the abstract goes on to give was not read, so Pneumark gives no threshold of it; the volume and pages from memory).',
 } as const);
 
 export type Sex = 'male' | 'female';
@@ -66,6 +68,14 @@ export const PLATEAU_LIMIT_CMH2O = 30;
 
 /** Top of the lung-protective tidal volume range, mL per kg predicted body weight (target 6, range 4–8). Source: `ardsnet-2000`. */
 export const LUNG_PROTECTIVE_VT_MAX_ML_PER_KG = 8;
+
+/**
+ * The expired tidal volumes during NIV for de novo acute hypoxaemic respiratory failure, mL per kg
+ * predicted body weight, medians of the patients in whom NIV failed and of those in whom it
+ * succeeded (`carteaux-2016`): shown beside a VT/PBW under NIV as what was associated with failure,
+ * not as a limit; PN403's 8 mL/kg is a ventilator's, and does not apply to a breath the patient takes.
+ */
+export const NIV_VT_MEDIAN_ML_PER_KG = Object.freeze({ failed: 10.6, succeeded: 8.5 });
 
 /** Driving pressure commonly flagged (cmH2O), after `amato-2015`: the flag itself is common practice, no source. */
 export const DRIVING_PRESSURE_FLAG_CMH2O = 15;

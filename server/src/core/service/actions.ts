@@ -223,11 +223,12 @@ function shorthandActions(result: NoteResult, line: number): ActionInfo[] {
 }
 
 /**
- * Whether a fix keeps every value of the lines it edits readable: the line, re-parsed with the
- * fix applied, holds at least as many values and has no more problems of any kind that the line
- * alone shows (`lineProblems`). (A guard: a fix that would break a line, such as a unit inserted
- * inside a shorthand gas, or that would trade one problem for another, such as `temp 37 mmHg`
- * changed to the impossible `37 F`, is not offered.)
+ * Whether a fix keeps every value of the lines it edits readable: the lines, re-parsed with the
+ * fix applied, hold at least as many values together (one moved from a line to another, as PN201
+ * moves an SpO2 target off a patient line, is still there) and none has more problems of any kind
+ * that the line alone shows (`lineProblems`). (A guard: a fix that would break a line, such as a
+ * unit inserted inside a shorthand gas, or that would trade one problem for another, such as
+ * `temp 37 mmHg` changed to the impossible `37 F`, is not offered.)
  */
 export function keepsValues(result: NoteResult, fix: Fix): boolean {
   const byLine = new Map<number, TextEdit[]>();
@@ -237,6 +238,7 @@ export function keepsValues(result: NoteResult, fix: Fix): boolean {
     list.push(e);
     byLine.set(e.range.start.line, list);
   }
+  let lost = 0;
   for (const [line, edits] of byLine) {
     const node = lineAt(result, line);
     if (!node) return false;
@@ -246,12 +248,23 @@ export function keepsValues(result: NoteResult, fix: Fix): boolean {
     } catch {
       return false;
     }
-    if (/[\r\n]/.test(text)) continue;
-    const values = (n: LineNode) => (n.kind === 'section' ? n.items.filter((i) => i.value !== null).length : 0);
+    if (/[\r\n]/.test(text)) {
+      // Lines added (a new oxygen line that takes a value moved off another): their values count.
+      let added = 0;
+      for (const part of text.split(/\r\n|\r|\n/)) added += valuesOf(parseLine(part, line));
+      lost += valuesOf(node) - added;
+      continue;
+    }
     const fixed = parseLine(text, line);
-    if (values(fixed) < values(node) || addsProblem(node, fixed)) return false;
+    if (addsProblem(node, fixed)) return false;
+    lost += valuesOf(node) - valuesOf(fixed);
   }
-  return true;
+  return lost <= 0;
+}
+
+/** How many items of a line hold a value. */
+function valuesOf(n: LineNode): number {
+  return n.kind === 'section' ? n.items.filter((i) => i.value !== null).length : 0;
 }
 
 /**

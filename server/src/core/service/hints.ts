@@ -26,7 +26,8 @@ import { gasChangeParagraph } from './gas-change-hover';
 import { contentEnd, statesHeaderValues, lineAt } from './locate';
 import { cautionLine, escapeMarkdown, paragraphs } from './markdown';
 import { describeInputOrigin } from '../derive/context';
-import { derivationOf, derivedAt, derivedDef } from '../derive/registry';
+import { derivationOf, derivedAt, derivedDef, derivedValueOf } from '../derive/registry';
+import { START_NOT_IN_NOTE } from '../derive/high-flow';
 import { HINT_CATEGORIES, type HintCategory, type InlayHintInfo, type LineSpan } from './types';
 
 export interface HintOptions {
@@ -155,6 +156,8 @@ export function inlayHints(result: NoteResult, lines: LineSpan, options: HintOpt
   const inRange = (line: number | null): line is number => line !== null && line >= lines.start && line <= lines.end;
 
   const timepoints = result.analysis.timeline.timepoints;
+  /** Per value id, the first timepoint whose value says a caveat said once a note (`SAID_ONCE`). */
+  const firstSaid = new Map<string, number>();
   const headerInRange = lines.start < (timepoints[0]?.startLine ?? Number.POSITIVE_INFINITY);
   // Only timepoints whose lines meet the range are derived; the others can only give the header's
   // place hint (a pressure estimated from a header altitude, shown once on the header's line).
@@ -196,7 +199,7 @@ export function inlayHints(result: NoteResult, lines: LineSpan, options: HintOpt
           const n = `${hintNumber(d, kpa, pick.unit === true || mmhgInKpaNote)}${d.usesCarried ? CARRIED_MARK : ''}`;
           const text = pick.text(n, d, all.filter((v) => v.line === d.line), kpa);
           if (!text) continue;
-          const label = besideCaveat(text, d);
+          const label = besideCaveat(text, saysCaveatHere(result, d, tp, firstSaid) ? d : NO_CAVEAT);
           shown.add(`${line}:${d.id}`);
           add(line, category, { label, values: [d], withheld: NONE_WITHHELD, reading: null, derivation, timepoint: shownAt });
         }
@@ -231,6 +234,41 @@ export function inlayHints(result: NoteResult, lines: LineSpan, options: HintOpt
 }
 
 const NONE_WITHHELD: readonly NotApplicable[] = [];
+
+/**
+ * Caveats said beside a value in the inlay hints once a note: on the first timepoint whose value
+ * has it, not on every later one. The start of high flow not in the note (derive/high-flow.ts) is
+ * of the whole run from the note's first timepoint, and the same at each of its ROX indexes:
+ * repeated on every hint of a long note it is noise once read. Every hover (the hint's tooltip
+ * too), `show` and the JSON still say it with each value, with why and how to write the start.
+ */
+const SAID_ONCE: ReadonlySet<string> = new Set([START_NOT_IN_NOTE]);
+
+/** No caveat: the hint of a value whose caveat was said at an earlier timepoint. */
+const NO_CAVEAT = { caveat: null } as const;
+
+/**
+ * Whether the inlay hint of `d` at timepoint `tp` says its caveat: always, but for a caveat said
+ * once a note (`SAID_ONCE`), which only the first timepoint whose value has it says. Found by
+ * deriving only that value at the timepoints before it (from the first, until one has it), once
+ * per value id and request (`first`): no hint range skips it, so a hint says the same whether its
+ * request covers the first one or not.
+ */
+function saysCaveatHere(result: NoteResult, d: DerivedValue, tp: Timepoint, first: Map<string, number>): boolean {
+  if (d.caveat === null || !SAID_ONCE.has(d.caveat)) return true;
+  let at = first.get(d.id);
+  if (at === undefined) {
+    at = tp.index;
+    for (let i = 0; i < tp.index; i++) {
+      if (derivedValueOf(result.analysis.derivation(i), d.id)?.caveat === d.caveat) {
+        at = i;
+        break;
+      }
+    }
+    first.set(d.id, at);
+  }
+  return at >= tp.index;
+}
 
 /**
  * The values of a category's picks that a finding withholds at this timepoint, one entry per line
