@@ -257,7 +257,7 @@ function spacedUnit(units, keys) {
     // A unit spelling that is also a key of the section, with a number after it, is that key (`pco2 40 ph 7.4`).
     `(?!${keys}${END}\\s+${NUM_START})`, cap('keyword.other.unit', units.spaced), VALUE_END,
     // Up to 12 characters of one chunk, a comma between digits included (`mmol/l(9,5)`), as the lexer cuts it.
-    `|(?!${keys}${VALUE_END})(?=[A-Za-z%°])`, cap('keyword.other.unit.unknown', '(?:[^\\s,#]|(?<=[0-9]),(?=[0-9])){1,12}'), VALUE_END, `(?!\\s+${NUM_START})`,
+    `|(?!${keys}${VALUE_END})(?=[A-Za-z%°µμ])`, cap('keyword.other.unit.unknown', '(?:[^\\s,#]|(?<=[0-9]),(?=[0-9])){1,12}'), VALUE_END, `(?!\\s+${NUM_START})`,
     ')',
   ];
 }
@@ -344,13 +344,13 @@ const LONG_PAIR_SPACED = slashGroup(3, 12, SPACED);
 
 /**
  * What may follow a slash group: a unit glued to its last number (`120/80mmHg`; it starts with a
- * letter, `%` or `°` and holds no slash, as the parser reads it), or the end of the chunk and a
+ * letter, `%`, `°` or a micro sign and holds no slash, as the parser reads it), or the end of the chunk and a
  * unit after blanks.
  */
 function groupTail(units, keys) {
   return [
     '(?:', cap('keyword.other.unit', units.glued), VALUE_END,
-    '|', cap('keyword.other.unit.unknown', '[A-Za-z%°][^\\s,#/]*'), VALUE_END,
+    '|', cap('keyword.other.unit.unknown', '[A-Za-z%°µμ][^\\s,#/]*'), VALUE_END,
     '|', VALUE_END, '(?:', spacedUnit(units, keys), ')?',
     ')',
   ];
@@ -493,9 +493,9 @@ function bracketedMeanRule(pairKeys, units, keys) {
     '\\s+(?:', cap(pair('meta.pair'), PAIR), '|', cap(pair('meta.pair'), PAIR_SPACED), ')',
     // The pair's unit: glued to its last number (cut where the bracket starts), or after blanks.
     '(?:', cap('keyword.other.unit', units.glued), `(?=\\s*\\()`,
-    '|', cap('keyword.other.unit.unknown', '[A-Za-z%°][^\\s,#/\\(\\)]*'),
+    '|', cap('keyword.other.unit.unknown', '[A-Za-z%°µμ][^\\s,#/\\(\\)]*'),
     '|\\s+(?:', cap('keyword.other.unit', units.spaced), `(?=\\s*\\()`,
-    `|(?!${keys}${VALUE_END})`, cap('keyword.other.unit.unknown', '[A-Za-z%°][^\\s,#\\(\\)]{0,11}'),
+    `|(?!${keys}${VALUE_END})`, cap('keyword.other.unit.unknown', '[A-Za-z%°µμ][^\\s,#\\(\\)]{0,11}'),
     '))?',
     '\\s*(?:',
     cap('punctuation.definition.mean.begin', '\\('), '\\s*', cap(numeric, NUM_MAX),

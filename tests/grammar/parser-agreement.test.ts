@@ -153,6 +153,14 @@ describe('grammar and parser agree', () => {
     expect(await check([lines.join('\n')])).toEqual([]);
   });
 
+  it('on units written with a micro sign (U+00B5) or a Greek mu (U+03BC), glued or after a blank: units Pneumark does not know, not keys', async () => {
+    const lines = [
+      'labs glucose 5 µmol/L, na 140 μmol/L', 'labs glucose 5µmol/L, k 4μmol/L', 'vitals bp 120/80µmmHg', 'vitals bp 120/80 µmmHg',
+      'vitals bp 120/80µ(93)', 'labs k 4 µ', 'labs na 140 µmol/L, k 4',
+    ];
+    expect(await check([lines.join('\n')])).toEqual([]);
+  });
+
   it('on generated messy lines', async () => {
     const lines = fc.sample(messyLine, { numRuns: 1500, seed: 20250101 });
     expect(await check([lines.join('\n')])).toEqual([]);

@@ -1078,6 +1078,25 @@ const OTHER_MARKS: Readonly<Record<number, string>> = { 0xff0e: '.', 0xff0c: ','
 const ENDING_MARKS = '.,/';
 
 /**
+ * The name of the dash a number starts with in place of a minus sign (`–5`: an en dash, as a word
+ * processor writes one), or null: a dash other than the hyphen-minus and U+2212, followed by a
+ * digit or by a point and a digit. Such a number is not read (the format's signs are `-`, `+` and
+ * `−`); the parser says why in one finding, with the fix.
+ */
+function dashBeforeNumber(text: string): string | null {
+  const name = DASH_NAMES.get(text.charCodeAt(0));
+  if (name === undefined) return null;
+  const c = text.charCodeAt(1);
+  return isDigit(c) || (c === 0x2e /* . */ && isDigit(text.charCodeAt(2))) ? name : null;
+}
+
+const DASH_NAMES: ReadonlyMap<number, string> = new Map([
+  [0x2010, 'a hyphen (U+2010)'], [0x2011, 'a non-breaking hyphen (U+2011)'], [0x2012, 'a figure dash (U+2012)'],
+  [0x2013, 'an en dash (U+2013)'], [0x2014, 'an em dash (U+2014)'], [0xfe63, 'a small hyphen-minus (U+FE63)'],
+  [0xff0d, 'a fullwidth hyphen-minus (U+FF0D)'],
+]);
+
+/**
  * A number written at the start of `text` with decimal digits of another script (fullwidth
  * `８０`, Arabic-Indic `٨٠`, Devanagari `८०`), with ASCII digits, full stops, commas and slashes
  * among them (`7.4/40/٩٠`): the number in the digits 0–9, and how many UTF-16 units it takes in `text`. Null when
@@ -1118,10 +1137,12 @@ function startsLikeKey(text: string): boolean {
   return (lower >= 0x61 && lower <= 0x7a) || (c > 0x7f && text[0]!.toLowerCase() !== text[0]!.toUpperCase());
 }
 
-/** A letter, `%` or `°`: how a unit glued to a number starts. */
+/** A letter, `%`, `°` or a micro sign: how a unit starts (glued to a number, or the word after it). */
 function isUnitStart(c: number): boolean {
   const lower = c | 0x20;
-  return (lower >= 0x61 && lower <= 0x7a) || c === 0x25 || c === 0xb0;
+  // µ (the micro sign, U+00B5) and μ (the Greek letter, U+03BC): `µmol/L` is a unit Pneumark does
+  // not know (PN202), as `umol/L` is, not a key.
+  return (lower >= 0x61 && lower <= 0x7a) || c === 0x25 || c === 0xb0 || c === 0xb5 || c === 0x3bc;
 }
 
 /**
@@ -2307,7 +2328,20 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
     // is near; the words of a misspelt device, `room aor`, together): that it has no value would
     // only say it twice (`oxygen roomair`).
     if (!value && field !== null) {
-      issues.push({ check: 'missing-value', span: key.span, message: `\`${key.text}\` has no value.`, fixes: NONE });
+      const dash = next !== undefined && !next.afterComma && field.kind === 'number' ? dashBeforeNumber(next.text) : null;
+      if (dash !== null) {
+        // `be –5`: a minus sign a word processor turned into a dash. One finding, on the number, with
+        // the fix, rather than a key without a value and a stray word.
+        const meant = `-${next!.text.slice(1)}`;
+        issues.push({
+          check: 'stray-text', span: next!.span,
+          message: `\`${next!.text}\` starts with ${dash}, which is not read as a minus sign, so \`${key.text}\` has no value; write \`${meant}\`.`,
+          fixes: [{ title: `Write \`${meant}\``, edits: [{ span: { start: next!.start, end: next!.start + 1 }, newText: '-' }], preferred: true }],
+        });
+        i++;
+      } else {
+        issues.push({ check: 'missing-value', span: key.span, message: `\`${key.text}\` has no value.`, fixes: NONE });
+      }
     }
     items[count++] = otherItem(key.text, key.text, WRITTEN, field, value, unit, key.start);
   }

@@ -1,0 +1,71 @@
+/**
+ * Text pasted from elsewhere into a note: a word processor's dash for a minus sign, and a unit
+ * written with a micro sign. Each is one clear finding that names what is there, never a key
+ * without a value beside a stray word, nor a unit taken for a key.
+ */
+import { describe, expect, it } from 'vitest';
+import { checkNote } from '../../server/src/core/check-note';
+import { parseLine } from '../../server/src/core/syntax/parser';
+import type { SectionLine } from '../../server/src/core/syntax/tree';
+
+const section = (text: string): SectionLine => parseLine(text, 0) as SectionLine;
+
+describe('a number that starts with a dash other than a minus sign', () => {
+  // A word processor turns ` -5` into ` –5` (an en dash). The format's signs are `-`, `+` and `−`
+  // (U+2212), so the dash is not read as a sign; it was two errors, "`be` has no value" and
+  // "`–5` is not a key", neither of which named the dash.
+  const CASES: readonly [string, string, string, string][] = [
+    ['abg be –5, ph 7.3', '–5', 'an en dash (U+2013)', '-5'],
+    ['abg be —2.5', '—2.5', 'an em dash (U+2014)', '-2.5'],
+    ['abg be ‐.5', '‐.5', 'a hyphen (U+2010)', '-.5'],
+    ['abg be －3 mmol/L', '－3', 'a fullwidth hyphen-minus (U+FF0D)', '-3'],
+  ];
+  for (const [text, written, dash, meant] of CASES) {
+    it(`${text}: one finding on the number that names the dash, with a fix that reads the value`, () => {
+      const node = section(text);
+      expect(node.issues.map((i) => i.check)).toEqual(['stray-text']);
+      const issue = node.issues[0]!;
+      expect(issue.message).toBe(`\`${written}\` starts with ${dash}, which is not read as a minus sign, so \`be\` has no value; write \`${meant}\`.`);
+      expect(text.slice(issue.span.start, issue.span.end)).toBe(written);
+      const fix = issue.fixes[0]!;
+      expect(fix.preferred).toBe(true);
+      const edit = fix.edits[0]!;
+      const fixed = text.slice(0, edit.span.start) + edit.newText + text.slice(edit.span.end);
+      const after = section(fixed);
+      expect(after.issues).toEqual([]);
+      expect(after.items[0]!.number).toBe(Number(meant));
+    });
+  }
+
+  it('the minus sign U+2212 is a sign of the format, read with no finding', () => {
+    const result = checkNote('@ 08:00\nabg       be −5, ph 7.30\n');
+    expect(result.findings.filter((f) => f.severity !== 'information')).toEqual([]);
+    expect(result.analysis.timeline.timepoints[0]!.values.numberOf('base_excess')).toBe(-5);
+  });
+
+  it('a dash alone, or before a word, is stray text and the key has no value, as before', () => {
+    expect(section('labs k –').issues.map((i) => i.check)).toEqual(['missing-value', 'stray-text']);
+    expect(section('labs k –x').issues.map((i) => i.check)).toEqual(['missing-value', 'stray-text']);
+  });
+
+  it('a range joined by an en dash is still a range', () => {
+    const node = section('oxygen cannula 2 L/min, target 88–92');
+    expect(node.issues).toEqual([]);
+  });
+});
+
+describe('a unit written with a micro sign or a Greek mu', () => {
+  // `umol/L` was a unit Pneumark does not know (PN202, which says what the field takes) while
+  // `µmol/L`, as a lab report or a word processor writes it, was taken for a key ("not a key of
+  // labs lines"): a unit starts with µ (U+00B5) or μ (U+03BC) as it does with a letter.
+  for (const unit of ['µmol/L', 'μmol/L', 'umol/L']) {
+    it(`glucose 5 ${unit}: an unknown unit that says which units glucose takes`, () => {
+      const result = checkNote(`@ 08:00\nlabs      glucose 5 ${unit}\n`);
+      expect(result.findings.map((f) => [f.code, f.message])).toEqual([['PN202', `\`${unit}\` is not a unit Pneumark knows; Glucose takes mmol/L or mg/dL.`]]);
+    });
+  }
+
+  it('glued to the number, as before', () => {
+    expect(checkNote('@ 08:00\nlabs      glucose 5µmol/L\n').findings.map((f) => f.code)).toEqual(['PN202']);
+  });
+});
