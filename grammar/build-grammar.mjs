@@ -165,6 +165,11 @@ const UNREADABLE = `${NUM_MAX}(?=[^\\s#][0-9])(?=(?:[^\\s,#/]|,(?=[0-9]))*/)[^\\
 /** A clock the parser accepts: 00:00 to 23:59, one or two hour digits. */
 const CLOCK = '(?:[01]?[0-9]|2[0-3]):[0-5][0-9]';
 /** Three or four digits that make a time of day without its colon (`0800`, `745`), as the parser reports them after a day. */
+/**
+ * A time on the 12-hour clock that the 24-hour clock reads otherwise (`9:00 pm`, `10:15pm`,
+ * `12:30 a.m.`): the parser reports it (PN104) and leaves the time unknown.
+ */
+const TWELVE_HOUR = '(?:(?:0?[1-9]|1[01]):[0-5][0-9]\\s*[pP]\\.?[mM]\\.?|12:[0-5][0-9]\\s*[aA]\\.?[mM]\\.?)';
 const CLOCK_WITHOUT_COLON = '(?:[01][0-9]|2[0-3]|[0-9])[0-5][0-9]';
 /**
  * An offset the parser accepts: +1d, +1d6h, +1d6h30, +1d30m, +2h, +2h30, +2h30m, +45m, +45min. A
@@ -551,12 +556,13 @@ function timepointRule() {
     LEAD, cap('keyword.operator.timepoint', '@'), '[\\s,]*(?:',
     // day N [HH:MM]; after `day`, a chunk that is no day number, or no clock after it, is marked
     cap('keyword.other.day', ci('day')), '(?:', GAP, '(?:',
-    cap('constant.other.time', '[0-9]+'), '(?:', GAP, '(?:', cap('constant.other.time', CLOCK), VALUE_END, '|', cap('invalid.illegal.time', `[0-9][^\\s,#:]*:${CHUNK_REST}`),
+    cap('constant.other.time', '[0-9]+'), '(?:', GAP, '(?:', cap('invalid.illegal.time', TWELVE_HOUR), END, '|', cap('constant.other.time', CLOCK), VALUE_END, '|', cap('invalid.illegal.time', `[0-9][^\\s,#:]*:${CHUNK_REST}`),
     // a time of day without its colon (`@ day 2 0800`): reported with a fix, not read as the label
     '|', cap('invalid.illegal.time', CLOCK_WITHOUT_COLON), END, '))?', VALUE_END,
     '|', cap('invalid.illegal.time', `[^\\s,#]${CHUNK_REST}`),
     '))?', VALUE_END,
     // a time may end the line with a full stop glued on (`@ 08:00.`): read without it, as after items
+    '|', cap('invalid.illegal.time', TWELVE_HOUR), END,
     '|', cap('constant.other.time', CLOCK), VALUE_END,
     '|', cap('constant.other.time', OFFSET), VALUE_END,
     // an offset, clock or date that does not read, or any chunk starting with a digit

@@ -376,6 +376,12 @@ const SPEC_LINES: Readonly<Record<string, readonly string[] | { readonly on: str
   '@ +2h30': [],
   '@ +2h 30m': ['PN104'],
   '@ day 2 0800': ['PN104'],
+  // The 12-hour clock: reported where the 24-hour clock reads another time, read where it reads the same.
+  '@ 9:00 pm': ['PN104'],
+  '@ 10:15pm': ['PN104'],
+  '@ 12:30 am': ['PN104'],
+  '@ 8:00 am': [],
+  '@ 12:15 pm': [],
   'vent peak 15, ve 8': [],
   'vent vt 480, peak 16': [],
   'vent vt 480, flow 40': [],

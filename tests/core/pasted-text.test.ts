@@ -69,3 +69,38 @@ describe('a unit written with a micro sign or a Greek mu', () => {
     expect(checkNote('@ 08:00\nlabs      glucose 5µmol/L\n').findings.map((f) => f.code)).toEqual(['PN202']);
   });
 });
+
+describe('a time on the 12-hour clock', () => {
+  // `@ day 1 9:00 pm` was read as 09:00 with a label starting `pm`: the timepoint 12 hours early,
+  // with no finding, and every value of it in the wrong place of the timeline and the exports.
+  const timeOf = (text: string) => checkNote(`${text}\nvitals    hr 80\n`).analysis.timeline.timepoints[0]!.time;
+  const CASES: readonly [string, string, string, number][] = [
+    ['@ day 1 9:00 pm  evening', '9:00 pm', '21:00', 21 * 60],
+    ['@ day 1 10:15pm', '10:15pm', '22:15', 22 * 60 + 15],
+    ['@ day 2 12:30 AM  after midnight', '12:30 AM', '00:30', 1440 + 30],
+    ['@ 9:00 p.m.', '9:00 p.m.', '21:00', 21 * 60],
+    ['@ 11:45PM', '11:45PM', '23:45', 23 * 60 + 45],
+  ];
+  for (const [line, written, meant, minutes] of CASES) {
+    it(`${line}: PN104, the time left unknown, and a fix that writes ${meant}`, () => {
+      const result = checkNote(`${line}\nvitals    hr 80\n`);
+      const bad = result.findings.filter((f) => f.code === 'PN104');
+      expect(bad.map((f) => f.message)).toEqual([`\`${written}\` is a time on the 12-hour clock; Pneumark reads times on the 24-hour clock, where it is \`${meant}\` (the time is unknown until it is written so).`]);
+      expect(result.analysis.timeline.timepoints[0]!.time.minutes).toBeNull();
+      const fix = bad[0]!.fixes[0]!;
+      expect(fix.preferred).toBe(true);
+      const edit = fix.edits[0]!;
+      const fixed = line.slice(0, edit.range.start.character) + edit.newText + line.slice(edit.range.end.character);
+      const after = checkNote(`${fixed}\nvitals    hr 80\n`);
+      expect(after.findings.filter((f) => f.severity !== 'information')).toEqual([]);
+      expect(after.analysis.timeline.timepoints[0]!.time.minutes).toBe(minutes);
+    });
+  }
+
+  it('a time both clocks read alike is read, its am or pm left in the label; so is a 24-hour time before pm', () => {
+    for (const [line, minutes] of [['@ 8:00 am  round', 480], ['@ 12:15 pm', 735], ['@ 13:00 pm', 780], ['@ 0:30 am', 30]] as const) {
+      expect(checkNote(`${line}\nvitals    hr 80\n`).findings.filter((f) => f.code === 'PN104'), line).toEqual([]);
+      expect(timeOf(line).minutes, line).toBe(minutes);
+    }
+  });
+});

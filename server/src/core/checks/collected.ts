@@ -70,9 +70,9 @@ export const decimalComma = syntaxCheck('PN103', 'decimal-comma', 'Decimal comma
 });
 
 export const badTime = syntaxCheck('PN104', 'bad-time', 'Unreadable time', 'error', {
-  fires: 'A timepoint line has no time, an impossible time of day, an unreadable offset, a calendar date, or a time beyond what a note can span (day 100000 written, or more than 100000 days from day 1 reached by offsets and clock times past midnight). As a warning: an offset split by a blank (`@ +2h 30m`), which reads as `+2h` with a label starting `30m`.',
+  fires: 'A timepoint line has no time, an impossible time of day, an unreadable offset, a calendar date, a time on the 12-hour clock that the 24-hour clock reads otherwise (`9:00 pm`, read as 09:00 it would be 12 hours early, or `12:30 am`; `8:00 am` is left as it is), or a time beyond what a note can span (day 100000 written, or more than 100000 days from day 1 reached by offsets and clock times past midnight). As a warning: an offset split by a blank (`@ +2h 30m`), which reads as `+2h` with a label starting `30m`.',
   example: '@ 25:10 handover',
-  fix: 'Write `@ day N HH:MM`, `@ HH:MM` or an offset such as `@ +2h30` (no blanks inside it; the quick fix joins a split one). Calendar dates are not part of the format: use relative days.',
+  fix: 'Write `@ day N HH:MM`, `@ HH:MM` (on the 24-hour clock: `21:00`, which the quick fix writes for `9:00 pm`) or an offset such as `@ +2h30` (no blanks inside it; the quick fix joins a split one). Calendar dates are not part of the format: use relative days.',
 }, 'bad-time');
 
 export const strayText = syntaxCheck('PN105', 'stray-text', 'Stray text', 'error', {

@@ -613,7 +613,12 @@ function parseTimepoint(body: string, chunks: Word[], line: number, text: string
     } else {
       const c2 = chunks[at + 2];
       const clock = c2 ? clockAt(body, c2.start, c2.end) : null;
-      if (c2 && clock !== null) {
+      const twelve = c2 ? twelveHourIssue(body, chunks, at + 2, clock !== null, issues) : 0;
+      if (twelve > 0) {
+        // `@ day 1 9:00 pm`: a 12-hour time, reported (PN104); the day is known, its time is not.
+        time = new TimeNode('day', day, null, body, c0.start, c1.end);
+        used = 2 + twelve;
+      } else if (c2 && clock !== null) {
         time = new TimeNode('clock', day, clock, body, c0.start, c2.end);
         used = 3;
       } else {
@@ -648,8 +653,12 @@ function parseTimepoint(body: string, chunks: Word[], line: number, text: string
     }
   } else {
     const clock = clockAt(body, c0.start, c0.end);
+    const twelve = twelveHourIssue(body, chunks, at, clock !== null, issues);
     used = 1;
-    if (clock !== null) {
+    if (twelve > 0) {
+      // `@ 9:00 pm`: a 12-hour time, reported (PN104); the time is unknown until it is written on the 24-hour clock.
+      used = twelve;
+    } else if (clock !== null) {
       time = new TimeNode('clock', null, clock, body, c0.start, c0.end);
     } else if (looksLikeDate(c0.text)) {
       issues.push({ check: 'bad-time', span: c0.span, message: `\`${c0.text}\` looks like a calendar date; Pneumark notes use relative days instead (\`@ day 2 08:00\`), which keeps dates of care out of shared notes.`, fixes: NONE });
@@ -756,6 +765,51 @@ function asciiDigitsOnly(text: string, start: number, end: number): boolean {
     if (c < 0x30 || c > 0x39) return false;
   }
   return end > start;
+}
+
+/**
+ * A time of day on the 12-hour clock where the 24-hour clock reads another time: `9:00 pm` (read
+ * as 09:00, 12 hours early, with `pm` starting the label), `10:15pm`, `12:30 am` (00:30, not
+ * 12:30). The times the two clocks read alike (`8:00 am`, `12:15 pm`) are left as they are. Pushes
+ * a PN104 finding with a fix that writes the 24-hour time and returns how many words the time
+ * takes (1 glued, 2 with a blank before `pm`), or 0 when the words at `i` are no such time.
+ * `read` says whether the word at `i` is a time of day by itself; the finding goes to `issues`.
+ */
+function twelveHourIssue(body: string, chunks: readonly Word[], i: number, read: boolean, issues: SyntaxIssue[]): number {
+  const clock = chunks[i]!;
+  let words = 1;
+  let clockEnd = clock.end;
+  let suffix: string;
+  if (read) {
+    const next = chunks[i + 1];
+    if (next === undefined || next.afterComma) return 0;
+    suffix = next.text;
+    words = 2;
+  } else {
+    const glued = /(?:[ap]\.?m\.?)$/i.exec(clock.text);
+    if (glued === null) return 0;
+    suffix = glued[0];
+    clockEnd = clock.end - suffix.length;
+  }
+  const meridiem = /^([ap])\.?m\.?$/i.exec(suffix)?.[1]?.toLowerCase();
+  const minutes = meridiem === undefined ? null : clockAt(body, clock.start, clockEnd);
+  if (minutes === null) return 0;
+  const hour = Math.floor(minutes / 60);
+  if (hour < 1 || hour > 12) return 0;
+  const pm = meridiem === 'p';
+  // 1–11 am and 12 pm are the same time on both clocks.
+  if (pm === (hour === 12)) return 0;
+  const h24 = pm ? hour + 12 : 0;
+  const meant = `${String(h24).padStart(2, '0')}:${String(minutes % 60).padStart(2, '0')}`;
+  const end = words === 2 ? chunks[i + 1]!.end : clock.end;
+  const written = body.slice(clock.start, end);
+  const span = { start: clock.start, end };
+  issues.push({
+    check: 'bad-time', span,
+    message: `\`${written}\` is a time on the 12-hour clock; Pneumark reads times on the 24-hour clock, where it is \`${meant}\` (the time is unknown until it is written so).`,
+    fixes: [{ title: `Write \`${meant}\``, edits: [{ span, newText: meant }], preferred: true }],
+  });
+  return words;
 }
 
 /** `0800` → `08:00`, `745` → `07:45`: three or four digits that make a time of day; null otherwise. */
