@@ -104,3 +104,14 @@ describe('a time on the 12-hour clock', () => {
     }
   });
 });
+
+describe('the degree Celsius and Fahrenheit signs (U+2103, U+2109)', () => {
+  // A word processor or a monitor's export writes `℃`, one character; it was "not a key".
+  it('are spellings of C and F, after a blank or glued', () => {
+    const result = checkNote('@ 08:00\nvitals    temp 37.5 ℃, hr 80\n@ +1h\nvitals    temp 99.5℉\n');
+    expect(result.findings).toEqual([]);
+    const [first, second] = result.analysis.timeline.timepoints;
+    expect(first!.values.numberOf('temp')).toBe(37.5);
+    expect(second!.values.numberOf('temp')).toBeCloseTo(37.5, 10);
+  });
+});
