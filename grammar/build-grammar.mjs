@@ -165,6 +165,11 @@ const UNREADABLE = `${NUM_MAX}(?=[^\\s#][0-9])(?=(?:[^\\s,#/]|,(?=[0-9]))*/)[^\\
 /** A clock the parser accepts: 00:00 to 23:59, one or two hour digits. */
 const CLOCK = '(?:[01]?[0-9]|2[0-3]):[0-5][0-9]';
 /** Three or four digits that make a time of day without its colon (`0800`, `745`), as the parser reports them after a day. */
+/**
+ * A time on the 12-hour clock that the 24-hour clock reads otherwise (`9:00 pm`, `10:15pm`,
+ * `12:30 a.m.`): the parser reports it (PN104) and leaves the time unknown.
+ */
+const TWELVE_HOUR = '(?:(?:0?[1-9]|1[01]):[0-5][0-9]\\s*[pP]\\.?[mM]\\.?|12:[0-5][0-9]\\s*[aA]\\.?[mM]\\.?)';
 const CLOCK_WITHOUT_COLON = '(?:[01][0-9]|2[0-3]|[0-9])[0-5][0-9]';
 /**
  * An offset the parser accepts: +1d, +1d6h, +1d6h30, +1d30m, +2h, +2h30, +2h30m, +45m, +45min. A
@@ -257,7 +262,7 @@ function spacedUnit(units, keys) {
     // A unit spelling that is also a key of the section, with a number after it, is that key (`pco2 40 ph 7.4`).
     `(?!${keys}${END}\\s+${NUM_START})`, cap('keyword.other.unit', units.spaced), VALUE_END,
     // Up to 12 characters of one chunk, a comma between digits included (`mmol/l(9,5)`), as the lexer cuts it.
-    `|(?!${keys}${VALUE_END})(?=[A-Za-z%°])`, cap('keyword.other.unit.unknown', '(?:[^\\s,#]|(?<=[0-9]),(?=[0-9])){1,12}'), VALUE_END, `(?!\\s+${NUM_START})`,
+    `|(?!${keys}${VALUE_END})(?=[A-Za-z%°µμ])`, cap('keyword.other.unit.unknown', '(?:[^\\s,#]|(?<=[0-9]),(?=[0-9])){1,12}'), VALUE_END, `(?!\\s+${NUM_START})`,
     ')',
   ];
 }
@@ -344,13 +349,13 @@ const LONG_PAIR_SPACED = slashGroup(3, 12, SPACED);
 
 /**
  * What may follow a slash group: a unit glued to its last number (`120/80mmHg`; it starts with a
- * letter, `%` or `°` and holds no slash, as the parser reads it), or the end of the chunk and a
+ * letter, `%`, `°` or a micro sign and holds no slash, as the parser reads it), or the end of the chunk and a
  * unit after blanks.
  */
 function groupTail(units, keys) {
   return [
     '(?:', cap('keyword.other.unit', units.glued), VALUE_END,
-    '|', cap('keyword.other.unit.unknown', '[A-Za-z%°][^\\s,#/]*'), VALUE_END,
+    '|', cap('keyword.other.unit.unknown', '[A-Za-z%°µμ][^\\s,#/]*'), VALUE_END,
     '|', VALUE_END, '(?:', spacedUnit(units, keys), ')?',
     ')',
   ];
@@ -493,9 +498,9 @@ function bracketedMeanRule(pairKeys, units, keys) {
     '\\s+(?:', cap(pair('meta.pair'), PAIR), '|', cap(pair('meta.pair'), PAIR_SPACED), ')',
     // The pair's unit: glued to its last number (cut where the bracket starts), or after blanks.
     '(?:', cap('keyword.other.unit', units.glued), `(?=\\s*\\()`,
-    '|', cap('keyword.other.unit.unknown', '[A-Za-z%°][^\\s,#/\\(\\)]*'),
+    '|', cap('keyword.other.unit.unknown', '[A-Za-z%°µμ][^\\s,#/\\(\\)]*'),
     '|\\s+(?:', cap('keyword.other.unit', units.spaced), `(?=\\s*\\()`,
-    `|(?!${keys}${VALUE_END})`, cap('keyword.other.unit.unknown', '[A-Za-z%°][^\\s,#\\(\\)]{0,11}'),
+    `|(?!${keys}${VALUE_END})`, cap('keyword.other.unit.unknown', '[A-Za-z%°µμ][^\\s,#\\(\\)]{0,11}'),
     '))?',
     '\\s*(?:',
     cap('punctuation.definition.mean.begin', '\\('), '\\s*', cap(numeric, NUM_MAX),
@@ -551,12 +556,13 @@ function timepointRule() {
     LEAD, cap('keyword.operator.timepoint', '@'), '[\\s,]*(?:',
     // day N [HH:MM]; after `day`, a chunk that is no day number, or no clock after it, is marked
     cap('keyword.other.day', ci('day')), '(?:', GAP, '(?:',
-    cap('constant.other.time', '[0-9]+'), '(?:', GAP, '(?:', cap('constant.other.time', CLOCK), VALUE_END, '|', cap('invalid.illegal.time', `[0-9][^\\s,#:]*:${CHUNK_REST}`),
+    cap('constant.other.time', '[0-9]+'), '(?:', GAP, '(?:', cap('invalid.illegal.time', TWELVE_HOUR), END, '|', cap('constant.other.time', CLOCK), VALUE_END, '|', cap('invalid.illegal.time', `[0-9][^\\s,#:]*:${CHUNK_REST}`),
     // a time of day without its colon (`@ day 2 0800`): reported with a fix, not read as the label
     '|', cap('invalid.illegal.time', CLOCK_WITHOUT_COLON), END, '))?', VALUE_END,
     '|', cap('invalid.illegal.time', `[^\\s,#]${CHUNK_REST}`),
     '))?', VALUE_END,
     // a time may end the line with a full stop glued on (`@ 08:00.`): read without it, as after items
+    '|', cap('invalid.illegal.time', TWELVE_HOUR), END,
     '|', cap('constant.other.time', CLOCK), VALUE_END,
     '|', cap('constant.other.time', OFFSET), VALUE_END,
     // an offset, clock or date that does not read, or any chunk starting with a digit

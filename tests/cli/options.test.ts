@@ -87,8 +87,23 @@ describe('docs', () => {
     expect(await usageError(['docs', '--grammar', 'missing.md'])).toBe('pneumark docs: --grammar "missing.md": cannot be read (no such file or folder)');
   });
 
-  it('refuses arguments it does not take', async () => {
-    expect(await usageError(['docs', 'extra'])).toBe('pneumark docs: docs takes no arguments (got "extra"); to write to a file use --write FILE');
+  it('refuses a name that is no check\'s code or alias, with the check it likely meant', async () => {
+    expect(await usageError(['docs', 'extra'])).toBe('pneumark docs: "extra" is not the code or alias of a check (`pneumark docs` lists them all)');
+    expect(await usageError(['docs', 'PN405', 'PN41O'])).toBe('pneumark docs: "PN41O" is not the code or alias of a check; did you mean PN410 (oxygenation-reading)?');
+  });
+
+  it('prints the sections of docs/checks.md of the checks named, by code in any case or alias, in the order of the codes, each once', async () => {
+    // An educator points a learner at one check (`pneumark docs PN405`) rather than the whole list.
+    const out = io();
+    expect(await run(['docs', 'driving-pressure-high', 'pn326', 'PN405'], out)).toBe(0);
+    const text = out.out();
+    const whole = readFileSync('docs/checks.md', 'utf8');
+    const sectionOf = (code: string) => {
+      const start = whole.indexOf(`## ${code} `);
+      return whole.slice(start, whole.indexOf('<a id=', start));
+    };
+    expect(text).toBe(`${sectionOf('PN326')}${sectionOf('PN405')}Pneumark supports, never replaces, clinical judgement: defer to local protocols and licensed practice.\n`);
+    expect(text).toContain('```pneu\n@ day 1 08:00\nvent mode VC');
   });
 
   it('writes to a path relative to the working folder, and leaves every file alone when one cannot be read', async () => {

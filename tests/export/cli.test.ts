@@ -56,6 +56,22 @@ describe('notes with nothing to export, and notes that cannot be read', () => {
   });
 });
 
+describe('the exit code of an export whose notes are all read', () => {
+  // A pipeline reads the exit code: 1 says a note has an error finding, though every row was
+  // written (README, under `export`); 0 that none has.
+  it('is 1 where a note has an error finding, with every row written; 0 where none has', () => {
+    const dir = folder({ 'a-fine.pneu': '@ day 1 08:00\nvitals hr 90\n', 'b-broken.pneu': '@ day 1 08:00\nvitls hr 100\n@ +1h\nvitals hr 80\n' });
+    for (const format of ['csv', 'jsonl', 'fhir']) {
+      const r = cli(dir, ['export', '.', '--format', format]);
+      expect(r.status, format).toBe(1);
+      expect(r.stderr, format).toBe('');
+    }
+    const rows = rowsOf(cli(dir, ['export', '.', '--format', 'csv']).stdout);
+    expect(rows.map((x) => [x.file, x.timepoint, x.hr_per_min, x.findings_errors])).toEqual([['a-fine.pneu', '0', '90', '0'], ['b-broken.pneu', '0', '', '1'], ['b-broken.pneu', '1', '80', '0']]);
+    expect(cli(dir, ['export', 'a-fine.pneu', '--format', 'csv']).status).toBe(0);
+  });
+});
+
 describe('--spreadsheet-safe', () => {
   const labels = ['=HYPERLINK("http://example.invalid","x")', '+SUM(1;2)', '-2+3', '@cmd', 'plain'];
   const note = labels.map((l, i) => `@ day 1 0${i}:00  ${l}\nvitals hr 90\nabg be -4`).join('\n');

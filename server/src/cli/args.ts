@@ -29,7 +29,7 @@ Usage:
   pneumark check PATH... [options]     findings for notes
   pneumark export PATH... [options]    one row per timepoint (CSV, JSON Lines) or FHIR R4 bundles
   pneumark fmt PATH... [options]       canonical layout (the editor's formatter)
-  pneumark docs [--write FILE]         the documentation of every check
+  pneumark docs [CHECK...]             the documentation of every check, or of those named
   pneumark help [COMMAND]              this help, or a command's (as COMMAND --help)
   pneumark --version                   the version
 
@@ -166,9 +166,10 @@ Options:
                              (it need not exist); when PATH is excluded by .pneuignore or --exclude,
                              the note is written out unchanged and --check passes it (one line on
                              standard error says so; exit 0)`,
-  docs: `Usage: pneumark docs [--write FILE] [--grammar FILE] [--readme FILE]
+  docs: `Usage: pneumark docs [CHECK...] [--write FILE] [--grammar FILE] [--readme FILE]
 
-Prints (or writes) the documentation of every check, generated from the check registry.
+Prints (or writes) the documentation of every check, generated from the check registry, or of
+the checks named, by code or alias (pneumark docs PN405 oxygenation-reading).
 
 Options:
   --write FILE               write it to FILE instead of standard output

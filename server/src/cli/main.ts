@@ -14,7 +14,8 @@ import { wordList } from '../core/util/format';
 import { PNEUMARK_VERSION } from '../core/version';
 import { CAUTION, excludeOption, EXIT, HELP, jobsOption, parse, refuseEmptyPaths, stdinNameOption, UsageError, validate, wholeNumberOption, type Io } from './args';
 import { ConfigReport, reportConfigProblems } from './config-report';
-import { renderCheckDocs } from '../core/checks/docs';
+import { checkNamed, renderCheckDocs, renderChecksDocs } from '../core/checks/docs';
+import { unknownCheckNames } from '../core/config';
 import { replaceBetween, withGeneratedTables } from '../core/fields/docs';
 import { COLUMNS_END, COLUMNS_START, renderColumnTable } from '../core/export/docs';
 import { renderSettingsTable, SETTINGS_END, SETTINGS_START } from '../core/settings-docs';
@@ -223,13 +224,19 @@ const docsOptions = z.object({
 function docs(args: readonly string[], io: Io): number {
   const { positionals, values } = parse(args, { write: { type: 'string' }, grammar: { type: 'string' }, readme: { type: 'string' } });
   if (values.help) { io.stdout.write(`${HELP.docs}\n`); return EXIT.ok; }
-  if (positionals.length > 0) throw new UsageError(`docs takes no arguments (got ${positionals.map((a) => JSON.stringify(a)).join(', ')}); to write to a file use --write FILE`);
+  // `pneumark docs PN405 oxygenation-reading`: the sections of those checks alone.
+  const named = positionals.map((name) => {
+    const check = checkNamed(name);
+    if (check !== null) return check;
+    const likely = unknownCheckNames([name])[0]?.likely ?? [];
+    throw new UsageError(`${JSON.stringify(name)} is not the code or alias of a check${likely.length > 0 ? `; did you mean ${wordList(likely, 'or')}?` : ' (`pneumark docs` lists them all)'}`);
+  });
   const opts = validate(docsOptions, { write: values.write, grammar: values.grammar, readme: values.readme });
   const at = (path: string) => resolve(io.cwd, path);
   // Files to update are read first, so a path that cannot be read leaves every file as it was.
   const grammar = opts.grammar === undefined ? null : { path: opts.grammar, text: withGeneratedTables(readText(at(opts.grammar), opts.grammar, '--grammar')) };
   const readme = opts.readme === undefined ? null : { path: opts.readme, text: replaceBetween(replaceBetween(readText(at(opts.readme), opts.readme, '--readme'), COLUMNS_START, COLUMNS_END, renderColumnTable()), SETTINGS_START, SETTINGS_END, renderSettingsTable()) };
-  const text = renderCheckDocs();
+  const text = named.length > 0 ? renderChecksDocs(named) : renderCheckDocs();
   if (opts.write !== undefined) writeText(at(opts.write), opts.write, text, '--write');
   else io.stdout.write(text);
   if (grammar) writeText(at(grammar.path), grammar.path, grammar.text, '--grammar');

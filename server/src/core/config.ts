@@ -118,7 +118,8 @@ export interface UnknownCheckName {
 /**
  * The names of a `disabledChecks` list that are no check's code or alias (each once, in the
  * order written), with the checks they likely meant: the same code written with a space, hyphen
- * or without its `PN` (`PN 302`, `pn-302`, `302`), else the codes and aliases at the fewest edits
+ * or without its `PN` (`PN 302`, `pn-302`, `302`), or with a letter O for a zero or an l or I for
+ * a one among its digits (`PN41O`, `PN3l2`), else the codes and aliases at the fewest edits
  * (one or two; one for names of three letters or fewer; a swap of two neighbours counts as one:
  * `PN220` is one edit from both PN202 and PN320), when there are at most three (`PN30` is one
  * edit from nine codes, and names none).
@@ -137,7 +138,10 @@ export function unknownCheckNames(names: readonly string[]): UnknownCheckName[] 
 
 function likelyChecks(lower: string): string[] {
   const squeezed = lower.replace(/[\s_-]+/g, '');
-  const asCode = /^\d{3}$/.test(squeezed) ? `pn${squeezed}` : squeezed;
+  // `PN41O`, `PN3l2`: a letter O for a zero, an l or I for a one, among the digits of a code.
+  const digits = squeezed.startsWith('pn') ? squeezed.slice(2) : squeezed;
+  const read = /^[0-9oil]{3}$/.test(digits) && /[0-9]/.test(digits) ? digits.replace(/o/g, '0').replace(/[il]/g, '1') : null;
+  const asCode = read !== null ? `pn${read}` : squeezed;
   const same = CHECKS.find((c) => c.code.toLowerCase() === asCode);
   if (same) return [`${same.code} (${same.alias})`];
   const limit = lower.length <= 3 ? 1 : 2;

@@ -98,8 +98,8 @@ export const UNITS: readonly UnitDef[] = [
   unit('/min', 'rate', '/min', linear(1), ['bpm', 'min-1', 'breaths/min', 'beats/min', '/m']),
   // Cycles a second, as oscillators are set (1 Hz = 60 /min; UCUM: Hz = 1/s).
   unit('Hz', 'rate', 'Hz', linear(60), ['hz']),
-  unit('C', 'temperature', 'Cel', linear(1), ['°C', 'degC', 'c', 'celsius']),
-  unit('F', 'temperature', '[degF]', { toBase: (v) => ((v - 32) * 5) / 9, fromBase: (v) => (v * 9) / 5 + 32 }, ['°F', 'degF', 'f', 'fahrenheit']),
+  unit('C', 'temperature', 'Cel', linear(1), ['°C', '℃', 'degC', 'c', 'celsius']),
+  unit('F', 'temperature', '[degF]', { toBase: (v) => ((v - 32) * 5) / 9, fromBase: (v) => (v * 9) / 5 + 32 }, ['°F', '℉', 'degF', 'f', 'fahrenheit']),
   unit('mL', 'volume', 'mL', linear(1), ['ml', 'cc']),
   unit('L', 'volume', 'L', linear(1000), ['l']),
   // A tidal volume per kg of predicted body weight: read in mL once the PBW is known (timeline).

@@ -613,7 +613,12 @@ function parseTimepoint(body: string, chunks: Word[], line: number, text: string
     } else {
       const c2 = chunks[at + 2];
       const clock = c2 ? clockAt(body, c2.start, c2.end) : null;
-      if (c2 && clock !== null) {
+      const twelve = c2 ? twelveHourIssue(body, chunks, at + 2, clock !== null, issues) : 0;
+      if (twelve > 0) {
+        // `@ day 1 9:00 pm`: a 12-hour time, reported (PN104); the day is known, its time is not.
+        time = new TimeNode('day', day, null, body, c0.start, c1.end);
+        used = 2 + twelve;
+      } else if (c2 && clock !== null) {
         time = new TimeNode('clock', day, clock, body, c0.start, c2.end);
         used = 3;
       } else {
@@ -648,8 +653,12 @@ function parseTimepoint(body: string, chunks: Word[], line: number, text: string
     }
   } else {
     const clock = clockAt(body, c0.start, c0.end);
+    const twelve = twelveHourIssue(body, chunks, at, clock !== null, issues);
     used = 1;
-    if (clock !== null) {
+    if (twelve > 0) {
+      // `@ 9:00 pm`: a 12-hour time, reported (PN104); the time is unknown until it is written on the 24-hour clock.
+      used = twelve;
+    } else if (clock !== null) {
       time = new TimeNode('clock', null, clock, body, c0.start, c0.end);
     } else if (looksLikeDate(c0.text)) {
       issues.push({ check: 'bad-time', span: c0.span, message: `\`${c0.text}\` looks like a calendar date; Pneumark notes use relative days instead (\`@ day 2 08:00\`), which keeps dates of care out of shared notes.`, fixes: NONE });
@@ -756,6 +765,51 @@ function asciiDigitsOnly(text: string, start: number, end: number): boolean {
     if (c < 0x30 || c > 0x39) return false;
   }
   return end > start;
+}
+
+/**
+ * A time of day on the 12-hour clock where the 24-hour clock reads another time: `9:00 pm` (read
+ * as 09:00, 12 hours early, with `pm` starting the label), `10:15pm`, `12:30 am` (00:30, not
+ * 12:30). The times the two clocks read alike (`8:00 am`, `12:15 pm`) are left as they are. Pushes
+ * a PN104 finding with a fix that writes the 24-hour time and returns how many words the time
+ * takes (1 glued, 2 with a blank before `pm`), or 0 when the words at `i` are no such time.
+ * `read` says whether the word at `i` is a time of day by itself; the finding goes to `issues`.
+ */
+function twelveHourIssue(body: string, chunks: readonly Word[], i: number, read: boolean, issues: SyntaxIssue[]): number {
+  const clock = chunks[i]!;
+  let words = 1;
+  let clockEnd = clock.end;
+  let suffix: string;
+  if (read) {
+    const next = chunks[i + 1];
+    if (next === undefined || next.afterComma) return 0;
+    suffix = next.text;
+    words = 2;
+  } else {
+    const glued = /(?:[ap]\.?m\.?)$/i.exec(clock.text);
+    if (glued === null) return 0;
+    suffix = glued[0];
+    clockEnd = clock.end - suffix.length;
+  }
+  const meridiem = /^([ap])\.?m\.?$/i.exec(suffix)?.[1]?.toLowerCase();
+  const minutes = meridiem === undefined ? null : clockAt(body, clock.start, clockEnd);
+  if (minutes === null) return 0;
+  const hour = Math.floor(minutes / 60);
+  if (hour < 1 || hour > 12) return 0;
+  const pm = meridiem === 'p';
+  // 1–11 am and 12 pm are the same time on both clocks.
+  if (pm === (hour === 12)) return 0;
+  const h24 = pm ? hour + 12 : 0;
+  const meant = `${String(h24).padStart(2, '0')}:${String(minutes % 60).padStart(2, '0')}`;
+  const end = words === 2 ? chunks[i + 1]!.end : clock.end;
+  const written = body.slice(clock.start, end);
+  const span = { start: clock.start, end };
+  issues.push({
+    check: 'bad-time', span,
+    message: `\`${written}\` is a time on the 12-hour clock; Pneumark reads times on the 24-hour clock, where it is \`${meant}\` (the time is unknown until it is written so).`,
+    fixes: [{ title: `Write \`${meant}\``, edits: [{ span, newText: meant }], preferred: true }],
+  });
+  return words;
 }
 
 /** `0800` → `08:00`, `745` → `07:45`: three or four digits that make a time of day; null otherwise. */
@@ -1078,6 +1132,25 @@ const OTHER_MARKS: Readonly<Record<number, string>> = { 0xff0e: '.', 0xff0c: ','
 const ENDING_MARKS = '.,/';
 
 /**
+ * The name of the dash a number starts with in place of a minus sign (`–5`: an en dash, as a word
+ * processor writes one), or null: a dash other than the hyphen-minus and U+2212, followed by a
+ * digit or by a point and a digit. Such a number is not read (the format's signs are `-`, `+` and
+ * `−`); the parser says why in one finding, with the fix.
+ */
+function dashBeforeNumber(text: string): string | null {
+  const name = DASH_NAMES.get(text.charCodeAt(0));
+  if (name === undefined) return null;
+  const c = text.charCodeAt(1);
+  return isDigit(c) || (c === 0x2e /* . */ && isDigit(text.charCodeAt(2))) ? name : null;
+}
+
+const DASH_NAMES: ReadonlyMap<number, string> = new Map([
+  [0x2010, 'a hyphen (U+2010)'], [0x2011, 'a non-breaking hyphen (U+2011)'], [0x2012, 'a figure dash (U+2012)'],
+  [0x2013, 'an en dash (U+2013)'], [0x2014, 'an em dash (U+2014)'], [0xfe63, 'a small hyphen-minus (U+FE63)'],
+  [0xff0d, 'a fullwidth hyphen-minus (U+FF0D)'],
+]);
+
+/**
  * A number written at the start of `text` with decimal digits of another script (fullwidth
  * `８０`, Arabic-Indic `٨٠`, Devanagari `८०`), with ASCII digits, full stops, commas and slashes
  * among them (`7.4/40/٩٠`): the number in the digits 0–9, and how many UTF-16 units it takes in `text`. Null when
@@ -1118,10 +1191,12 @@ function startsLikeKey(text: string): boolean {
   return (lower >= 0x61 && lower <= 0x7a) || (c > 0x7f && text[0]!.toLowerCase() !== text[0]!.toUpperCase());
 }
 
-/** A letter, `%` or `°`: how a unit glued to a number starts. */
+/** A letter, `%`, `°` or a micro sign: how a unit starts (glued to a number, or the word after it). */
 function isUnitStart(c: number): boolean {
   const lower = c | 0x20;
-  return (lower >= 0x61 && lower <= 0x7a) || c === 0x25 || c === 0xb0;
+  // µ (the micro sign, U+00B5) and μ (the Greek letter, U+03BC): `µmol/L` is a unit Pneumark does
+  // not know (PN202), as `umol/L` is, not a key.
+  return (lower >= 0x61 && lower <= 0x7a) || c === 0x25 || c === 0xb0 || c === 0xb5 || c === 0x3bc;
 }
 
 /**
@@ -2307,7 +2382,20 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
     // is near; the words of a misspelt device, `room aor`, together): that it has no value would
     // only say it twice (`oxygen roomair`).
     if (!value && field !== null) {
-      issues.push({ check: 'missing-value', span: key.span, message: `\`${key.text}\` has no value.`, fixes: NONE });
+      const dash = next !== undefined && !next.afterComma && field.kind === 'number' ? dashBeforeNumber(next.text) : null;
+      if (dash !== null) {
+        // `be –5`: a minus sign a word processor turned into a dash. One finding, on the number, with
+        // the fix, rather than a key without a value and a stray word.
+        const meant = `-${next!.text.slice(1)}`;
+        issues.push({
+          check: 'stray-text', span: next!.span,
+          message: `\`${next!.text}\` starts with ${dash}, which is not read as a minus sign, so \`${key.text}\` has no value; write \`${meant}\`.`,
+          fixes: [{ title: `Write \`${meant}\``, edits: [{ span: { start: next!.start, end: next!.start + 1 }, newText: '-' }], preferred: true }],
+        });
+        i++;
+      } else {
+        issues.push({ check: 'missing-value', span: key.span, message: `\`${key.text}\` has no value.`, fixes: NONE });
+      }
     }
     items[count++] = otherItem(key.text, key.text, WRITTEN, field, value, unit, key.start);
   }
