@@ -148,6 +148,27 @@ export function checkDocs(markdown: string): CheckDoc[] {
   return docs;
 }
 
+/**
+ * The link of a diagnostic's code: the server links each code to its heading in docs/checks.md
+ * (a file URI with the heading as fragment, which any editor can open), but VS Code opens such a
+ * link as Markdown source at its first line, whatever the fragment. In VS Code the code opens
+ * Open Check Documentation at that check instead: the rendered documentation, at its heading.
+ */
+export function checkDocsLink(code: string): vscode.Uri {
+  return vscode.Uri.parse(`command:pneumark.openCheckDocs?${encodeURIComponent(JSON.stringify([code]))}`);
+}
+
+/** The diagnostics given, each code that links to docs/checks.md linked with `checkDocsLink`. */
+export function linkCodesToCheckDocs(diagnostics: vscode.Diagnostic[]): vscode.Diagnostic[] {
+  for (const d of diagnostics) {
+    const code = d.code;
+    if (typeof code !== 'object' || code === null || typeof code.value !== 'string') continue;
+    if (!/^PN\d{3}$/.test(code.value) || !code.target.path.endsWith('/docs/checks.md')) continue;
+    d.code = { value: code.value, target: checkDocsLink(code.value) };
+  }
+  return diagnostics;
+}
+
 /** The documented check a code (`PN101`, `pn101`) or alias (`unknown-section`) names. */
 export function findCheck(docs: readonly CheckDoc[], name: string): CheckDoc | undefined {
   const wanted = name.trim().toLowerCase();
