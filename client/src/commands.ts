@@ -9,6 +9,13 @@ import { CONVERT_UNITS_REQUEST, type ConvertUnitsParams, type PlainTextEdit } fr
 import { inMessage } from './message-text';
 import { LANGUAGE, type Requester } from './status';
 
+/**
+ * What the unit picker of Convert Gas Units says it converts. Short enough for the picker's input
+ * at its usual width (about 80 characters): cut off, its end ("line") was lost and a tooltip
+ * repeated it over the list.
+ */
+export const CONVERT_PLACEHOLDER = 'PaO2, PaCO2, venous gases, EtCO2, barometric pressure and the units gas line';
+
 function activeNote(purpose: string): vscode.TextEditor | null {
   const editor = vscode.window.activeTextEditor;
   if (editor && editor.document.languageId === LANGUAGE) return editor;
@@ -43,7 +50,7 @@ export async function convertNoteUnits(server: Requester | null | Promise<Reques
       { label: 'mmHg', description: 'millimetres of mercury' },
       { label: 'kPa', description: 'kilopascals' },
     ],
-    { title: 'Convert every gas pressure of this note to', placeHolder: 'PaO2, PaCO2, venous PO2 and PCO2, EtCO2 and barometric pressure, and the units gas line' },
+    { title: 'Convert every gas pressure of this note to', placeHolder: CONVERT_PLACEHOLDER },
   );
   if (!pick) return;
   const to = pick.label as ConvertUnitsParams['to'];

@@ -6,7 +6,7 @@ import type { ConvertUnitsParams, PlainTextEdit } from '../../server/src/protoco
 import { closeDocument, openEditor, Range, resetFake, state, Uri } from './fake-vscode';
 
 vi.mock('vscode', async () => (await import('./fake-vscode')).vscodeModule);
-const { checkDocs, convertNoteUnits, findCheck, insertTimepoint, linkCodesToCheckDocs, openCheckDocs, timepointInsertion } = await import('../../client/src/commands');
+const { CONVERT_PLACEHOLDER, checkDocs, convertNoteUnits, findCheck, insertTimepoint, linkCodesToCheckDocs, openCheckDocs, timepointInsertion } = await import('../../client/src/commands');
 
 beforeEach(() => resetFake());
 
@@ -35,6 +35,17 @@ describe('Convert Gas Units of This Note', () => {
     await convertNoteUnits(send);
     expect(asked).toEqual([{ uri: 'file:///work/a.pneu', to: 'kPa' }]);
     expect(editor.document.lineAt(3).text).toBe('abg       ph 7.30, pco2 6.7 kPa, po2 60');
+  });
+
+  it('says in its picker what it converts, in words that fit the picker\'s input', async () => {
+    openEditor('/work/a.pneu', NOTE);
+    state.pick = 'kPa';
+    await convertNoteUnits(converter().send);
+    const options = state.quickPicks[0]?.options as { placeHolder?: string } | undefined;
+    expect(options?.placeHolder).toBe(CONVERT_PLACEHOLDER);
+    // The picker's input shows about 80 characters at its usual width: a longer one lost its end.
+    expect(CONVERT_PLACEHOLDER.length).toBeLessThanOrEqual(80);
+    expect(CONVERT_PLACEHOLDER).toMatch(/units gas line$/);
   });
 
   it('works on an untitled note', async () => {
