@@ -9,6 +9,13 @@ import { CONVERT_UNITS_REQUEST, type ConvertUnitsParams, type PlainTextEdit } fr
 import { inMessage } from './message-text';
 import { LANGUAGE, type Requester } from './status';
 
+/**
+ * What the unit picker of Convert Gas Units says it converts. Short enough for the picker's input
+ * at its usual width (about 80 characters): cut off, its end ("line") was lost and a tooltip
+ * repeated it over the list.
+ */
+export const CONVERT_PLACEHOLDER = 'PaO2, PaCO2, venous gases, EtCO2, barometric pressure and the units gas line';
+
 function activeNote(purpose: string): vscode.TextEditor | null {
   const editor = vscode.window.activeTextEditor;
   if (editor && editor.document.languageId === LANGUAGE) return editor;
@@ -43,7 +50,7 @@ export async function convertNoteUnits(server: Requester | null | Promise<Reques
       { label: 'mmHg', description: 'millimetres of mercury' },
       { label: 'kPa', description: 'kilopascals' },
     ],
-    { title: 'Convert every gas pressure of this note to', placeHolder: 'PaO2, PaCO2, venous PO2 and PCO2, EtCO2 and barometric pressure, and the units gas line' },
+    { title: 'Convert every gas pressure of this note to', placeHolder: CONVERT_PLACEHOLDER },
   );
   if (!pick) return;
   const to = pick.label as ConvertUnitsParams['to'];
@@ -146,6 +153,27 @@ export function checkDocs(markdown: string): CheckDoc[] {
     docs.push({ code: m[1]!, alias: m[2]!, anchor: `${m[1]!.toLowerCase()}-${m[2]!}`, summary });
   }
   return docs;
+}
+
+/**
+ * The link of a diagnostic's code: the server links each code to its heading in docs/checks.md
+ * (a file URI with the heading as fragment, which any editor can open), but VS Code opens such a
+ * link as Markdown source at its first line, whatever the fragment. In VS Code the code opens
+ * Open Check Documentation at that check instead: the rendered documentation, at its heading.
+ */
+export function checkDocsLink(code: string): vscode.Uri {
+  return vscode.Uri.parse(`command:pneumark.openCheckDocs?${encodeURIComponent(JSON.stringify([code]))}`);
+}
+
+/** The diagnostics given, each code that links to docs/checks.md linked with `checkDocsLink`. */
+export function linkCodesToCheckDocs(diagnostics: vscode.Diagnostic[]): vscode.Diagnostic[] {
+  for (const d of diagnostics) {
+    const code = d.code;
+    if (typeof code !== 'object' || code === null || typeof code.value !== 'string') continue;
+    if (!/^PN\d{3}$/.test(code.value) || !code.target.path.endsWith('/docs/checks.md')) continue;
+    d.code = { value: code.value, target: checkDocsLink(code.value) };
+  }
+  return diagnostics;
 }
 
 /** The documented check a code (`PN101`, `pn101`) or alias (`unknown-section`) names. */

@@ -13,7 +13,7 @@ import {
   type ServerOptions,
 } from 'vscode-languageclient/node';
 import { ANALYSED_NOTIFICATION, type AnalysedParams } from '../../server/src/protocol';
-import { convertNoteUnits, insertTimepoint, openCheckDocs } from './commands';
+import { convertNoteUnits, insertTimepoint, linkCodesToCheckDocs, openCheckDocs } from './commands';
 import { crashHandler, pneumarkSettingsOnly, restartServer, traceChannel, type CrashHandler } from './server-process';
 import { shownEscaped } from '../../server/src/core/util/format';
 import { LANGUAGE, TimepointStatus, type Requester } from './status';
@@ -153,7 +153,11 @@ function createClient(output: vscode.LogOutputChannel, trace: vscode.LogOutputCh
     traceOutputChannel: trace,
     revealOutputChannelOn: RevealOutputChannelOn.Never,
     errorHandler: crashes,
-    middleware: { workspace: { didChangeConfiguration } },
+    middleware: {
+      workspace: { didChangeConfiguration },
+      // A code's link opens the check's documentation rendered, at its heading (see checkDocsLink).
+      handleDiagnostics: (uri, diagnostics, next) => next(uri, linkCodesToCheckDocs(diagnostics)),
+    },
   };
   return new LanguageClient('pneumark', 'Pneumark', serverOptions, clientOptions);
 }

@@ -71,6 +71,21 @@ export function seriesDash(position: number, width: number): { segments: number[
 }
 
 /** A series with values, and the unit they are in. */
+/** The narrowest pH axis: 0.2 of pH, so that one gas sits mid-axis. */
+export const PH_AXIS_SPAN = 0.2;
+
+/**
+ * The pH axis's ends when its values span less than `PH_AXIS_SPAN`: that span, centred on them
+ * and on hundredths (one gas at pH 7.30 is drawn on 7.20 to 7.40). Null otherwise, and where there
+ * is no value: the chart's own padded range then (the chart's default made a lone pH 7.30 an axis
+ * from 0 to 14, with the point halfway up like a PaCO2 of 50 on its own axis).
+ */
+export function phAxisRange(min: number | null, max: number | null): [number, number] | null {
+  if (min === null || max === null || !Number.isFinite(min) || !Number.isFinite(max) || max - min >= PH_AXIS_SPAN) return null;
+  const low = Math.round(((min + max) / 2 - PH_AXIS_SPAN / 2) * 100) / 100;
+  return [low, Math.round((low + PH_AXIS_SPAN) * 100) / 100];
+}
+
 export interface PlottedSeries extends SeriesSpec {
   readonly unit: TrendUnit;
 }

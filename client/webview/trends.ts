@@ -18,7 +18,7 @@ import uPlot from 'uplot';
 import type { TrendPoint, TrendSeries } from '../../server/src/protocol';
 import { toWebview, trendViewState, type FromWebview, type ToWebview, type TrendViewState } from './messages';
 import { shownEscaped, wordList } from '../../server/src/core/util/format';
-import { emptyMessage, legendName, legendText, panelLayouts, seriesDash, timepointTable, toggleAfterRedraw, toggleName, xAxis, type PanelLayout } from './panels';
+import { emptyMessage, legendName, legendText, panelLayouts, phAxisRange, seriesDash, timepointTable, toggleAfterRedraw, toggleName, xAxis, type PanelLayout } from './panels';
 
 interface VsCodeApi {
   postMessage(message: FromWebview): void;
@@ -39,6 +39,10 @@ let lastUri = '';
 let received = false;
 
 /** VS Code's own chart colours (dark themes), for a theme that sets none: each series its own. */
+/** The range of the pH axis: `phAxisRange`, else the chart's default (padded, snapped). */
+const pHRange: uPlot.Range.Function = (_u, min, max) =>
+  phAxisRange(min, max) ?? ((min as number | null) === null ? [null, null] : uPlot.rangeNum(min, max, 0.1, true));
+
 const CHART_COLOURS: Readonly<Record<string, string>> = { blue: '#3794ff', purple: '#b180d7', orange: '#d18616', green: '#89d185', red: '#f14c4c', yellow: '#cca700' };
 
 function themeColour(name: string): string {
@@ -272,7 +276,7 @@ function render(list: readonly TrendPoint[], note: string, closed: boolean): voi
       // The page's own legend (panelLegend) shows the values under the cursor.
       legend: { show: false },
       hooks: { setCursor: [(u) => legend?.showAt(u.cursor.idx ?? null)] },
-      scales: { x: { time: false }, y: {}, ...(panel.rightLabel !== null ? { r: {} } : {}) },
+      scales: { x: { time: false }, y: {}, ...(panel.rightLabel !== null ? { r: panel.series.some((s) => s.key === 'ph' && s.axis === 1) ? { range: pHRange } : {} } : {}) },
       axes: [
         { ...axisStyle, label: hours ? 'hours since day 1 00:00' : 'timepoint' },
         { ...axisStyle, label: panel.leftLabel, scale: 'y' },

@@ -231,6 +231,23 @@ describe('Pneumark in VS Code', () => {
     await screenshot(wb.page, '13-check-docs');
   });
 
+  it('opens the documentation of a finding\'s check from its code in the Problems panel', async () => {
+    // The code links to the check rendered, at its heading (the file link opened the Markdown
+    // source at its first line). PN410, where the preview the test before left shows PN405.
+    await openFile(wb.page, 'icu-ventilated-lung-injury.pneu');
+    await runCommand(wb.page, 'Problems: Focus on Problems View');
+    const code = wb.page.locator('.markers-panel .monaco-list-row a', { hasText: /^PN410$/ }).first();
+    await code.waitFor({ timeout: 30000 });
+    await code.click();
+    try {
+      await expect.poll(() => headingInView(/^PN410 /), { timeout: 60000 }).toBe(true);
+    } catch (error) {
+      await screenshot(wb.page, 'failed-16-code-link');
+      throw error;
+    }
+    await screenshot(wb.page, '16-code-link');
+  });
+
   it('applies a setting changed while a note is open, without a reload or an edit', async () => {
     await openFile(wb.page, 'icu-ventilated-lung-injury.pneu');
     const lines = wb.page.locator('.editor-instance .monaco-editor .view-lines').first();
@@ -251,6 +268,21 @@ async function texts(selector: string): Promise<string[]> {
   const out: string[] = [];
   for (const frame of wb.page.frames()) out.push(...(await frame.locator(selector).allTextContents().catch(() => [])));
   return out;
+}
+
+/** Whether a frame shows a heading of the check documentation within its window. */
+async function headingInView(text: RegExp): Promise<boolean> {
+  for (const f of wb.page.frames()) {
+    const heading = f.locator('h2', { hasText: text }).first();
+    if (await heading.count().catch(() => 0) === 0) continue;
+    // Runs in the page; the preview scrolls to fractional positions (a heading at the top may sit
+    // a fraction of a pixel above it).
+    return heading.evaluate((el) => {
+      const top = (el as unknown as { getBoundingClientRect(): { top: number } }).getBoundingClientRect().top;
+      return top > -1 && top < (globalThis as unknown as { innerHeight: number }).innerHeight;
+    });
+  }
+  return false;
 }
 
 /** The charts drawn, in every frame. */

@@ -6,7 +6,7 @@ import type { ConvertUnitsParams, PlainTextEdit } from '../../server/src/protoco
 import { closeDocument, openEditor, Range, resetFake, state, Uri } from './fake-vscode';
 
 vi.mock('vscode', async () => (await import('./fake-vscode')).vscodeModule);
-const { checkDocs, convertNoteUnits, findCheck, insertTimepoint, openCheckDocs, timepointInsertion } = await import('../../client/src/commands');
+const { CONVERT_PLACEHOLDER, checkDocs, convertNoteUnits, findCheck, insertTimepoint, linkCodesToCheckDocs, openCheckDocs, timepointInsertion } = await import('../../client/src/commands');
 
 beforeEach(() => resetFake());
 
@@ -35,6 +35,17 @@ describe('Convert Gas Units of This Note', () => {
     await convertNoteUnits(send);
     expect(asked).toEqual([{ uri: 'file:///work/a.pneu', to: 'kPa' }]);
     expect(editor.document.lineAt(3).text).toBe('abg       ph 7.30, pco2 6.7 kPa, po2 60');
+  });
+
+  it('says in its picker what it converts, in words that fit the picker\'s input', async () => {
+    openEditor('/work/a.pneu', NOTE);
+    state.pick = 'kPa';
+    await convertNoteUnits(converter().send);
+    const options = state.quickPicks[0]?.options as { placeHolder?: string } | undefined;
+    expect(options?.placeHolder).toBe(CONVERT_PLACEHOLDER);
+    // The picker's input shows about 80 characters at its usual width: a longer one lost its end.
+    expect(CONVERT_PLACEHOLDER.length).toBeLessThanOrEqual(80);
+    expect(CONVERT_PLACEHOLDER).toMatch(/units gas line$/);
   });
 
   it('works on an untitled note', async () => {
@@ -186,5 +197,28 @@ describe('Open Check Documentation', () => {
     state.files.set(docsUri, markdown);
     await openCheckDocs(extension, '[PN101](command:workbench.action.quit)');
     expect(state.messages[0]?.message).not.toMatch(NOTIFICATION_LINK);
+  });
+
+  it('links a diagnostic\'s code to this command, which shows the check rendered at its heading', () => {
+    // The server links PN405 to docs/checks.md#pn405-…; VS Code opened that as Markdown source at
+    // its first line. The link runs Open Check Documentation with the code instead.
+    type Code = { value: string | number; target: Uri } | string | undefined;
+    const elsewhere = { value: 'PN101', target: Uri.parse('https://example.invalid/other.md#pn101') };
+    const diagnostics: { code: Code }[] = [
+      { code: { value: 'PN405', target: Uri.parse(`${docsUri}#pn405-driving-pressure-high`) } },
+      { code: 'too-large' },
+      { code: elsewhere },
+      { code: undefined },
+    ];
+    linkCodesToCheckDocs(diagnostics as never);
+    const linked = diagnostics[0]!.code as { value: string; target: Uri };
+    expect(linked.value).toBe('PN405');
+    const [command, query] = String(linked.target).split('?');
+    expect(command).toBe('command:pneumark.openCheckDocs');
+    expect(JSON.parse(decodeURIComponent(query!))).toEqual(['PN405']);
+    // Codes that are no check's, or that link elsewhere, are left as they are.
+    expect(diagnostics[1]!.code).toBe('too-large');
+    expect(diagnostics[2]!.code).toBe(elsewhere);
+    expect(diagnostics[3]!.code).toBeUndefined();
   });
 });

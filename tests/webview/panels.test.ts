@@ -2,7 +2,7 @@
 // the points give them (the page converts nothing). Points are written by hand here; what the
 // core gives for a note is tested in tests/core/trends.test.ts.
 import { describe, expect, it } from 'vitest';
-import { emptyMessage, legendName, legendText, PANELS, panelLayouts, seriesDash, timepointTable, toggleAfterRedraw, toggleName, xAxis } from '../../client/webview/panels';
+import { emptyMessage, legendName, legendText, PANELS, panelLayouts, PH_AXIS_SPAN, phAxisRange, seriesDash, timepointTable, toggleAfterRedraw, toggleName, xAxis } from '../../client/webview/panels';
 import type { TrendPoint } from '../../server/src/protocol';
 
 function point(values: TrendPoint['values'], line = 0): TrendPoint {
@@ -124,5 +124,24 @@ describe('labels from the note', () => {
   it('are shown with characters that reorder or hide text escaped', () => {
     const table = timepointTable([{ ...point({ pao2: { value: 80, unit: 'mmHg' } }), label: 'a\u202Eexe.pdf \u2066x\u200by <b>' }]);
     expect(table.rows[0]?.label).toBe('a\\u{202E}exe.pdf \\u{2066}x\\u{200B}y <b>');
+  });
+});
+
+describe('the pH axis', () => {
+  it('is 0.2 of pH wide around one gas, or gases of nearly one pH, not 0 to 14', () => {
+    expect(phAxisRange(7.3, 7.3)).toEqual([7.2, 7.4]);
+    expect(phAxisRange(7.28, 7.34)).toEqual([7.21, 7.41]);
+    expect(phAxisRange(6.95, 6.95)).toEqual([6.85, 7.05]);
+    for (const [lo, hi] of [[7.3, 7.3], [7.28, 7.34], [7.01, 7.19]] as const) {
+      const [a, b] = phAxisRange(lo, hi)!;
+      expect(b - a).toBeCloseTo(PH_AXIS_SPAN, 10);
+      expect(a).toBeLessThanOrEqual(lo);
+      expect(b).toBeGreaterThanOrEqual(hi);
+    }
+  });
+
+  it('is left to the chart where the values spread wider, or where there are none', () => {
+    expect(phAxisRange(7.1, 7.45)).toBeNull();
+    expect(phAxisRange(null, null)).toBeNull();
   });
 });
