@@ -1,5 +1,5 @@
 // PN415: a stated base excess against the pH and HCO3 of its own gas. Expected spans are worked by
-// hand from the forms of the CLSI guideline (C46-A, 2001; read as analysers' manuals give them, see
+// hand from the forms of the CLSI guideline (C46-A, 2001; the SBE's form read in a published study's table, the ABE's from memory; see
 // tests/physiology/sources-read.test.ts): SBE = HCO3 − 24.8 + 16.2 × (pH − 7.40),
 // ABE = (1 − 0.014 × Hb) × (HCO3 − 24.8 + (1.43 × Hb + 7.7) × (pH − 7.40)), Hb in g/dL, the ABE over
 // Hb 7–17 g/dL with no Hb stated (common practice, no source); a stated value is accepted within

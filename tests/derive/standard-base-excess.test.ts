@@ -1,5 +1,5 @@
 // The standard base excess from a gas's pH and HCO3 (`sbe`, `sbe_venous`): SBE = HCO3 − 24.8 + 16.2 ×
-// (pH − 7.40), the CLSI guideline's form (C46-A 2001), read as analysers' manuals give it (where, in
+// (pH − 7.40), the CLSI guideline's form (C46-A 2001), read in a published study's table (where, in
 // tests/physiology/sources-read.test.ts). Invented gases.
 import { describe, expect, it } from 'vitest';
 import { checkNote } from '../../server/src/core';

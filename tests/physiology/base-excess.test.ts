@@ -3,8 +3,8 @@
  * SBE = HCO3 − 24.8 + 16.2 × (pH − 7.40), and the actual base excess of blood,
  * ABE = (1 − 0.014 × Hb) × (HCO3 − 24.8 + (1.43 × Hb + 7.7) × (pH − 7.40)), Hb in g/dL.
  * Source of both: CLSI (NCCLS) C46-A, Blood Gas and pH Analysis and Related Measurements, Approved
- * Guideline, 2001 (second edition C46-A2, 2009), read as the manuals of blood gas analysers give them
- * (December 2026; where, in tests/physiology/sources-read.test.ts, with their general form and the ABE
+ * Guideline, 2001 (second edition C46-A2, 2009; not read): the SBE's form read in a published study's
+ * table, the ABE's constants from memory (December 2026; where, in tests/physiology/sources-read.test.ts, with their general form and the ABE
  * against another standardisation, Lang & Zander 2002). Every expected value is worked by hand from
  * those forms, the arithmetic beside it; the gases are invented.
  */
@@ -19,7 +19,7 @@ import {
   standardBaseExcess,
 } from '../../server/src/core/physiology/acid-base';
 
-describe('standard base excess (CLSI C46-A 2001, as analysers\' manuals give it)', () => {
+describe('standard base excess (CLSI C46-A 2001)', () => {
   it('pH 7.40 with HCO3 24.8 is 0: 24.8 − 24.8 + 16.2 × 0 = 0; with HCO3 24.4, −0.4', () => {
     expect(standardBaseExcess(7.4, 24.8)).toBeCloseTo(0, 9);
     expect(standardBaseExcess(7.4, 24.4)).toBeCloseTo(-0.4, 9);
@@ -48,7 +48,7 @@ describe('standard base excess (CLSI C46-A 2001, as analysers\' manuals give it)
   });
 });
 
-describe('actual base excess, Hb in g/dL (CLSI C46-A 2001, as analysers\' manuals give it)', () => {
+describe('actual base excess, Hb in g/dL (CLSI C46-A 2001)', () => {
   it('pH 7.20, HCO3 14, Hb 10: (1 − 0.14) × (14 − 24.8 + (14.3 + 7.7) × (−0.20)) = 0.86 × (−10.8 − 4.4) = 0.86 × −15.2 = −13.07', () => {
     expect(actualBaseExcess(7.2, 14, 10)).toBeCloseTo(-13.072, 4);
   });

@@ -50,9 +50,9 @@
  * normal a/A ratio; the oscillation frequencies of HFOV in adults; the oldest verified age and the
  * height of the highest summit, behind the bounds of age and altitude.
  *
- * Read in December 2026 (session 32), each beside its test below: the CLSI forms of the standard and
- * the actual base excess, in the manuals of blood gas analysers (the standard base excess Pneumark used
- * before was not the standard's, and was replaced); West's model atmosphere of 1996 and the molar mass of
+ * Read in December 2026 (session 32), each beside its test below: the CLSI form of the standard base
+ * excess, in a published study's table (the standard base excess Pneumark used before was not that
+ * form, and was replaced); West's model atmosphere of 1996 and the molar mass of
  * haemoglobin, in the oxygen delivery model of Bretherick and Baillie; Ellis's inversion of Severinghaus's
  * equation, in the Acutelines data toolbox; Mellemgaard 1966's citation; the frequencies of neonates on
  * nasal HFOV; the citation of Roca and coauthors 2016. Not found in that session (still from memory):
@@ -665,28 +665,24 @@ describe('base excess: the Van Slyke form as read, and the actual base excess ag
   });
 });
 
-// The base excess of the CLSI guideline (C46-A, 2001; C46-A2, 2009, the standard itself not read), as read in
-// December 2026 (session 32) in the manuals of blood gas analysers that work it out by it: the OPTI CCA-TS
-// operator's manual (OPTI Medical), appendix A, page A-9, BE = (1 − 0.014 × tHb) × ((HCO3 − 24.8) + (1.43 ×
-// tHb + 7.7) × (pH − 7.4)) and BEecf = HCO3 − 24.8 + 16.2 × (pH − 7.4) for a tHb of 5 g/dL, reference CLSI
-// C46-A 2001; the ABL90 FLEX reference manual (Radiometer), page 8-24, equations 5 and 7, the same two forms,
-// "in accordance with NCCLS (CLSI)-approved guidelines" (both at easymanua.ls); the i15 user manual (Edan),
-// chapter 11, page 121, the same two, tHb by default 15 g/dL; and the ABE alone, zero at pH 7.40, PCO2 5.33 kPa
-// and Hb 15.0 g/dL, in a hospital laboratory's procedure for Siemens critical care analysers (version 2.00,
-// 2009, page 18, at manualu.com). The same SBE after Shapiro and coauthors 1989 in table 1 of PMC6090410.
-// Pneumark's SBE until then, 0.93 × (HCO3 − 24.4 + 14.8 × (pH − 7.40)), recalled as the standard's, was
-// not: it is replaced by the form read.
+// The standard base excess of the CLSI guideline (C46-A, 2001; C46-A2, 2009; the standard itself not read),
+// SBE = HCO3 − 24.8 + 16.2 × (pH − 7.4), as read in December 2026 (session 32) in table 1 of a 2018 study in
+// Vet Med Sci 4(3):206–217 (PMC6090410), after Shapiro and coauthors 1989. The actual base excess,
+// (1 − 0.014 × Hb) × (HCO3 − 24.8 + (1.43 × Hb + 7.7) × (pH − 7.4)), Hb in g/dL: its constants from memory.
+// (Both forms also agreed with manufacturers' documentation that quotes the standard, looked at that session;
+// product documents are not cited as sources here.) Pneumark's SBE until then, 0.93 × (HCO3 − 24.4 + 14.8 ×
+// (pH − 7.40)), recalled as the standard's, was not the form read: it is replaced by it.
 const CLSI_SBE_AS_READ = (ph: number, hco3: number): number => hco3 - 24.8 + 16.2 * (ph - 7.4);
-const CLSI_ABE_AS_READ = (ph: number, hco3: number, hb: number): number => (1 - 0.014 * hb) * (hco3 - 24.8 + (1.43 * hb + 7.7) * (ph - 7.4));
+const CLSI_ABE_RECALLED = (ph: number, hco3: number, hb: number): number => (1 - 0.014 * hb) * (hco3 - 24.8 + (1.43 * hb + 7.7) * (ph - 7.4));
 const SBE_USED_UNTIL_DECEMBER_2026 = (ph: number, hco3: number): number => 0.93 * (hco3 - 24.4 + 14.8 * (ph - 7.4));
 
-describe('base excess: the standard and the actual base excess against the CLSI forms as read in analysers\' manuals', () => {
-  it.each([[7.0, 5], [7.2, 14], [7.4, 24.8], [7.42, 24.1], [7.5, 32], [7.7, 50]])('pH %f, HCO3 %f: the SBE and the ABE (Hb 7, 10, 15, 17 g/dL) are the forms as read', (ph, hco3) => {
+describe('base excess: the standard base excess against the form as read, the actual one against its recalled constants', () => {
+  it.each([[7.0, 5], [7.2, 14], [7.4, 24.8], [7.42, 24.1], [7.5, 32], [7.7, 50]])('pH %f, HCO3 %f: the SBE is the form as read, the ABE (Hb 7, 10, 15, 17 g/dL) the form recalled', (ph, hco3) => {
     expect(standardBaseExcess(ph, hco3)!).toBeCloseTo(CLSI_SBE_AS_READ(ph, hco3), 12);
-    for (const hb of [7, 10, 15, 17]) expect(actualBaseExcess(ph, hco3, hb)!).toBeCloseTo(CLSI_ABE_AS_READ(ph, hco3, hb), 12);
+    for (const hb of [7, 10, 15, 17]) expect(actualBaseExcess(ph, hco3, hb)!).toBeCloseTo(CLSI_ABE_RECALLED(ph, hco3, hb), 12);
   });
 
-  it('the ABE is 0 at pH 7.40 and HCO3 24.8 with Hb 15.0 g/dL, as the laboratory procedure read gives it', () => {
+  it('the ABE is 0 at pH 7.40 and HCO3 24.8 with Hb 15.0 g/dL (from memory)', () => {
     expect(actualBaseExcess(7.4, 24.8, 15)).toBeCloseTo(0, 12);
   });
 
@@ -701,11 +697,10 @@ describe('base excess: the standard and the actual base excess against the CLSI 
 
   it('the citation says where the forms were read, and what replaced what', () => {
     const source = ACID_BASE['van-slyke-sbe'];
-    expect(source).toContain('OPTI CCA-TS');
-    expect(source).toContain('ABL90 FLEX');
+    expect(source).toContain('table 1 of a 2018 study in Vet Med Sci 4(3):206–217 (PMC6090410');
+    expect(source).toContain('the ABE\'s constants from memory');
     expect(source).toContain('SBE = HCO3 − 24.8 + 16.2 × (pH − 7.40)');
     expect(source).toContain('Until December 2026 Pneumark used 0.93 × (HCO3 − 24.4 + 14.8 × (pH − 7.40))');
-    expect(source).not.toContain('constants from memory');
   });
 });
 

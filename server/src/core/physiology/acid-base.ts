@@ -42,7 +42,7 @@ export const SOURCES = Object.freeze({
   'kelly-2005':
     'Kelly AM, Kerr D, Middleton P. Validation of venous pCO2 to screen for arterial hypercarbia in patients with chronic obstructive airways disease. J Emerg Med 2005;28(4):377–379 (read in its abstract): a venous pCO2 above 45 mmHg caught all 43 patients whose arterial pCO2 was above 50 mmHg; none of the 30 with a venous pCO2 below 45 mmHg had one.',
   'van-slyke-sbe':
-    'Standard base excess (of the extracellular fluid), SBE = HCO3 − 24.8 + 16.2 × (pH − 7.40) mmol/L, and the actual (blood) base excess, ABE = (1 − 0.014 × Hb) × (HCO3 − 24.8 + (1.43 × Hb + 7.7) × (pH − 7.40)) with Hb in g/dL: CLSI (NCCLS) C46-A, Blood Gas and pH Analysis and Related Measurements, 2001, and C46-A2, 2009 (not read here); both forms read as the standard\'s in analysers\' manuals (December 2026, easymanua.ls): the OPTI CCA-TS operator\'s manual, page A-9, its reference C46-A 2001, and the ABL90 FLEX reference manual, page 8-24; the ABE, zero at pH 7.40, PCO2 5.33 kPa and Hb 15.0 g/dL, also in a hospital laboratory\'s procedure for Siemens analysers (2009, manualu.com). Until December 2026 Pneumark used 0.93 × (HCO3 − 24.4 + 14.8 × (pH − 7.40)), recalled as the standard\'s SBE: it is not, and differs from it by up to 2.7 mmol/L. The general form, BE = Z × ((HCO3 − HCO3 at pH 7.40) + β × (pH − 7.40)), Z depending on the Hb only, read in the abstract of Lang W, Zander R. The accuracy of calculated base excess in blood. Clin Chem Lab Med 2002;40(4):404–410 (metajournal.com), which recommends (1 − 0.0143 × Hb) × ((0.0304 × PCO2 × 10^(pH − 6.1) − 24.26) + (9.5 + 1.63 × Hb) × (pH − 7.40)) − 0.2 × Hb × (1 − sO2), Hb in g/dL: with the same HCO3 the ABE here is within 2 mmol/L of it in oxygenated blood (pH 7.0–7.7, HCO3 5–50 mmol/L, Hb 7–17 g/dL).',
+    'Standard base excess (of the extracellular fluid), SBE = HCO3 − 24.8 + 16.2 × (pH − 7.40) mmol/L, and the actual (blood) base excess, ABE = (1 − 0.014 × Hb) × (HCO3 − 24.8 + (1.43 × Hb + 7.7) × (pH − 7.40)) with Hb in g/dL: the forms of CLSI (NCCLS) C46-A, Blood Gas and pH Analysis and Related Measurements, 2001, and C46-A2, 2009 (the standard not read here). The SBE read in table 1 of a 2018 study in Vet Med Sci 4(3):206–217 (PMC6090410, December 2026), after Shapiro and coauthors 1989; the ABE\'s constants from memory. Until December 2026 Pneumark used 0.93 × (HCO3 − 24.4 + 14.8 × (pH − 7.40)), recalled as the standard\'s SBE: it is not the form read, and differs from it by up to 2.7 mmol/L. The general form, BE = Z × ((HCO3 − HCO3 at pH 7.40) + β × (pH − 7.40)), Z depending on the Hb only, read in the abstract of Lang W, Zander R. The accuracy of calculated base excess in blood. Clin Chem Lab Med 2002;40(4):404–410 (metajournal.com), which recommends (1 − 0.0143 × Hb) × ((0.0304 × PCO2 × 10^(pH − 6.1) − 24.26) + (9.5 + 1.63 × Hb) × (pH − 7.40)) − 0.2 × Hb × (1 − sO2), Hb in g/dL: with the same HCO3 the ABE here is within 2 mmol/L of it in oxygenated blood (pH 7.0–7.7, HCO3 5–50 mmol/L, Hb 7–17 g/dL).',
   'pneumark-base-excess-tolerance':
     'A stated base excess is accepted within ±3 mmol/L of the span from the lowest to the highest of the standard and the actual base excess (BASE_EXCESS_TOLERANCE_MMOL_L), the actual one over the stated Hb or, with none, over Hb 7–17 g/dL: common practice, no source; reasoning given beside the constants.',
   'pneumark-consistency-tolerance':
@@ -788,12 +788,11 @@ export function venousPco2Screen(pvco2Mmhg: number, resolutionMmhg = 0): VenousP
 
 /**
  * Base excess: the standard base excess of the extracellular fluid (SBE) and the actual base excess
- * of blood (ABE), both as the CLSI guideline has them (`van-slyke-sbe`: read in December 2026 in
- * the manuals of analysers that work them out by it; the general form, and another standardisation
- * the ABE is held against, read then too).
+ * of blood (ABE), both as the CLSI guideline has them (`van-slyke-sbe`: the SBE's form read in
+ * December 2026 in a published study's table, the ABE's constants from memory; the general form, and
+ * another standardisation the ABE is held against, read then too).
  *
- * Hb units: the ABE form takes Hb in g/dL, as the manuals read give it (zero at Hb 15.0 g/dL; a
- * default of 15 g/dL). Some texts print a form with ctHb in mmol/L (of the monomer; 1 g/dL ≈
+ * Hb units: the ABE form takes Hb in g/dL (zero at pH 7.40 and HCO3 24.8 whatever the Hb). Some texts print a form with ctHb in mmol/L (of the monomer; 1 g/dL ≈
  * 0.6206 mmol/L) and other constants. A stated Hb, held in g/dL inside the core, is put in as it is.
  */
 
