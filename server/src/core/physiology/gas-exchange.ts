@@ -17,7 +17,7 @@ export const SOURCES = Object.freeze({
   'aa-gradient-age-rules':
     'Upper normal A–a gradient age/4 + 4 and (age + 10)/4: common practice, no source.',
   'mellemgaard-1966':
-    'Mellemgaard K. The alveolar-arterial oxygen difference: its size and components in normal man. Acta Physiol Scand 1966;67(1):10–20 (the citation read among the references of the R package icuriskr\'s aa_gradient, on its page at rdrr.io, which does not give the rule; the paper and its upper normal, 2.5 + 0.21 × age mmHg, from memory).',
+    'Mellemgaard K. The alveolar-arterial oxygen difference: its size and components in normal man. Acta Physiol Scand 1966;67:10–20 (the citation and its upper normal, 2.5 + 0.21 × age mmHg, from memory).',
   'gilbert-keighley-1974':
     'Gilbert R, Keighley JF. The arterial/alveolar oxygen tension ratio: an index of gas exchange applicable to varying inspired oxygen concentrations. Am Rev Respir Dis 1974;109(1):142–145 (the paper from memory). The ratio as arterial over alveolar PO2, unaffected by FiO2 or barometric pressure, and one above 75 % probably normal, read in the chapter on oxygen tension-based indices of oxygenation at derangedphysiology.com (December 2026).',
   'berlin-2012':
