@@ -119,7 +119,9 @@ describe('the figures of a PaCO2 and of its expected range never contradict the 
         if (figures(out, false) !== null) compared++;
         expect([pco2, hco3, contradicting(out, false)]).toEqual([pco2, hco3, []]);
       }),
-      { numRuns: 400 },
+      // Found by a run with another seed: 49.61 was shown 49.6 beside an end shown 49.6 (45.56–49.56),
+      // its decimals taken against the ends and against 50 mmHg apart, not together.
+      { numRuns: 400, examples: [[{ pco2: '49.61', hco3: '34.8' }]] },
     );
     expect(compared).toBeGreaterThan(100);
   });

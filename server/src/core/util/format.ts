@@ -65,6 +65,22 @@ export function decimalsAgainst(value: number, decimals: number, t1: number, t2 
   return most;
 }
 
+/**
+ * `decimalsAgainst` for any number of thresholds at once: the fewest decimals from `decimals` that
+ * keep `value` on its side of every one of them. (The larger of two counts taken each against a
+ * part of the thresholds is not enough: 49.61 keeps its side of an end shown as 49.6 with no decimal
+ * and of 50 with one, yet with one it is shown as that end.)
+ */
+export function decimalsAgainstEach(value: number, decimals: number, thresholds: readonly number[]): number {
+  if (!Number.isFinite(value)) return decimals;
+  const exact = Math.round(value * 1e9) / 1e9;
+  const most = Math.max(decimals, 6);
+  for (let d = decimals; d < most; d++) {
+    if (thresholds.every((t) => keepsSide(value, exact, d, t))) return d;
+  }
+  return most;
+}
+
 /** Whether `value` shown with `d` decimals is on the same side of `t` as it is (NaN: no threshold). */
 function keepsSide(value: number, exact: number, d: number, t: number): boolean {
   if (Number.isNaN(t)) return true;
