@@ -719,8 +719,9 @@ function choice(words) {
 }
 
 /**
- * VS Code snippets. Placeholders for measured values are words, not numbers, so a snippet left
- * half-filled is reported by the checks instead of reading as plausible data.
+ * VS Code snippets. Placeholders for measured values are words in angle brackets (`<VT>`), not
+ * numbers, so a snippet left half-filled is reported (one PN102 finding per placeholder) instead of
+ * reading as plausible data.
  */
 export function buildSnippets({ FIELDS }) {
   const words = (id) => [...new Set(Object.values(FIELDS.find((f) => f.id === id)?.words ?? {}))];
@@ -741,27 +742,27 @@ export function buildSnippets({ FIELDS }) {
     },
     'Pneumark: arterial gas (shorthand)': {
       prefix: ['abgshort', 'gasline'],
-      body: [`${col('abg')}\${1:pH}/\${2:PaCO2}/\${3:PaO2}/\${4:HCO3}\${5: \${6|mmHg,kPa|}}\${7:, be \${8:BE}, lactate \${9:lactate}}`, '$0'],
+      body: [`${col('abg')}\${1:<pH>}/\${2:<PaCO2>}/\${3:<PaO2>}/\${4:<HCO3>}\${5: \${6|mmHg,kPa|}}\${7:, be \${8:<BE>}, lactate \${9:<lactate>}}`, '$0'],
       description: 'An arterial gas as pH/PaCO2/PaO2/HCO3 [unit], then further items',
     },
     'Pneumark: ventilator settings': {
       prefix: ['ventline', 'ventilator'],
-      body: [`${col('vent')}mode \${1|${choice(modes)}|}, vt \${2:VT} mL, rate \${3:rate}, peep \${4:PEEP}, fio2 \${5:FiO2}\${6:, plateau \${7:Pplat}, peak \${8:Ppeak}}`, '$0'],
+      body: [`${col('vent')}mode \${1|${choice(modes)}|}, vt \${2:<VT>} mL, rate \${3:<rate>}, peep \${4:<PEEP>}, fio2 \${5:<FiO2>}\${6:, plateau \${7:<Pplat>}, peak \${8:<Ppeak>}}`, '$0'],
       description: 'A ventilator line: mode, tidal volume, rate, PEEP, FiO2 and the pressures read',
     },
     'Pneumark: patient header': {
       prefix: ['header', 'patientline'],
-      body: [`${col('patient')}age \${1:age} y, sex \${2|female,male|}, height \${3:height} cm, weight \${4:weight} kg`, '$0'],
+      body: [`${col('patient')}age \${1:<age>} y, sex \${2|female,male|}, height \${3:<height>} cm, weight \${4:<weight>} kg`, '$0'],
       description: 'The patient line of the header (no names or identifiers)',
     },
     'Pneumark: oxygen therapy': {
       prefix: ['oxyline', 'oxygenline'],
-      body: [`${col('oxygen')}\${1|${choice(devices)}|}\${2: \${3:flow} L/min}\${4:, fio2 \${5:FiO2}}`, '$0'],
+      body: [`${col('oxygen')}\${1|${choice(devices)}|}\${2: \${3:<flow>} L/min}\${4:, fio2 \${5:<FiO2>}}`, '$0'],
       description: 'An oxygen line: the device, its flow and FiO2 (delete the flow and FiO2 for room air)',
     },
     'Pneumark: vital signs': {
       prefix: ['vitalsline'],
-      body: [`${col('vitals')}hr \${1:HR}, rr \${2:RR}, spo2 \${3:SpO2} %, temp \${4:temp} C, bp \${5:sys}/\${6:dia}`, '$0'],
+      body: [`${col('vitals')}hr \${1:<HR>}, rr \${2:<RR>}, spo2 \${3:<SpO2>} %, temp \${4:<temp>} C, bp \${5:<sys>}/\${6:<dia>}`, '$0'],
       description: 'A vitals line: heart rate, respiratory rate, SpO2, temperature, blood pressure',
     },
   };

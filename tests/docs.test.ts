@@ -408,6 +408,8 @@ const SPEC_LINES: Readonly<Record<string, readonly string[] | { readonly on: str
   'hr 80. rr 18': ['PN202'],
   'hr 80,, rr 18': ['PN105'],
   'bp 120/80 (93)': [],
+  // A snippet's placeholder left unfilled: one PN102 over the key, the placeholder and its unit.
+  'vt <VT> mL': ['PN102'],
   'bp 120/80 mmHg (93)': [],
   'bp 120/80 (93 mmHg)': [],
   'bp 120/80, map 93': [],

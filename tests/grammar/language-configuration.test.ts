@@ -32,7 +32,8 @@ function expand(body: string, fill: boolean): string {
   let text = body.replace(/\$CURRENT_HOUR/g, '08').replace(/\$CURRENT_MINUTE/g, '05');
   const innermost = /\$\{(\d+)(?::([^${}]*)|\|([^|]*)\|)\}/;
   for (let m = innermost.exec(text); m; m = innermost.exec(text)) {
-    const value = m[3] !== undefined ? m[3].split(',')[0]! : fill && m[2] !== undefined && EXAMPLE[m[2]] !== undefined ? EXAMPLE[m[2]]! : (m[2] ?? '');
+    const name = m[2]?.replace(/^<(.*)>$/, '$1');
+    const value = m[3] !== undefined ? m[3].split(',')[0]! : fill && name !== undefined && EXAMPLE[name] !== undefined ? EXAMPLE[name]! : (m[2] ?? '');
     text = text.slice(0, m.index) + value + text.slice(m.index + m[0].length);
   }
   return text.replace(/\$0/g, '');
@@ -117,7 +118,7 @@ describe('snippets', () => {
     const bodies = entries.map(([, s]) => s.body[0]!);
     expect(bodies.some((b) => b.startsWith('@ day '))).toBe(true);
     expect(bodies.some((b) => b.startsWith('@ +'))).toBe(true);
-    expect(bodies.some((b) => /^abg\s+\$\{1:pH\}\/\$\{2:PaCO2\}\/\$\{3:PaO2\}\/\$\{4:HCO3\}/.test(b))).toBe(true);
+    expect(bodies.some((b) => /^abg\s+\$\{1:<pH>\}\/\$\{2:<PaCO2>\}\/\$\{3:<PaO2>\}\/\$\{4:<HCO3>\}/.test(b))).toBe(true);
     expect(bodies.some((b) => /^vent\s+mode /.test(b))).toBe(true);
     expect(bodies.some((b) => /^patient\s+age /.test(b))).toBe(true);
     expect(bodies.some((b) => /^oxygen\s+\$\{1\|cannula,.*,room air\|\}/.test(b))).toBe(true);
@@ -140,11 +141,24 @@ describe('snippets', () => {
   });
 
   it('left unfilled, give data lines the parser reports (placeholders are words, not plausible numbers)', () => {
-    const withData = entries.filter(([, s]) => [...s.body.join('').matchAll(/\$\{\d+:([A-Za-z0-9]+)\}/g)].some((m) => /^[-\d.]+$/.test(EXAMPLE[m[1]!] ?? '')));
+    const withData = entries.filter(([, s]) => [...s.body.join('').matchAll(/\$\{\d+:<?([A-Za-z0-9]+)>?\}/g)].some((m) => /^[-\d.]+$/.test(EXAMPLE[m[1]!] ?? '')));
     expect(withData.length).toBeGreaterThanOrEqual(5);
     for (const [name, s] of withData) {
       const issues = expand(s.body.join('\n'), false).split('\n').flatMap((line) => parseLine(line, 0).issues);
       expect(issues.length, name).toBeGreaterThan(0);
+    }
+  });
+
+  it('left unfilled, give one finding (PN102) for each value placeholder, its unit included, and none besides', () => {
+    for (const [name, s] of entries) {
+      for (const line of expand(s.body.join('\n'), false).split('\n')) {
+        if (line.startsWith('@') || line.trim() === '') continue;
+        // Placeholders joined by slashes (`<sys>/<dia>`, a shorthand gas) are one word, so one finding.
+        const words = line.split(/[\s,]+/).filter((w) => /<[A-Za-z]/.test(w)).length;
+        const issues = parseLine(line, 0).issues;
+        expect(issues.map((i) => i.check), `${name}: ${line}`).toEqual(Array(words).fill('missing-value'));
+        expect(issues.every((i) => /placeholders? left unfilled/.test(i.message)), `${name}: ${line}`).toBe(true);
+      }
     }
   });
 

@@ -29,8 +29,8 @@ describe('at the start of a line', () => {
     const texts = snippets.map((c) => c.insertText);
     expect(texts).toContain('@ day ${1:N} ${2:HH:MM}  ${3:label}');
     expect(texts).toContain('@ +${1:interval}');
-    expect(texts).toContain('abg       ${1:pH}/${2:PaCO2}/${3:PaO2}/${4:HCO3}');
-    expect(texts.some((t) => t.startsWith('vent      mode ${1|VC,PC,PRVC,PS,SIMV,APRV,CPAP,HFOV|}, vt ${2:VT} mL'))).toBe(true);
+    expect(texts).toContain('abg       ${1:<pH>}/${2:<PaCO2>}/${3:<PaO2>}/${4:<HCO3>}');
+    expect(texts.some((t) => t.startsWith('vent      mode ${1|VC,PC,PRVC,PS,SIMV,APRV,CPAP,HFOV|}, vt ${2:<VT>} mL'))).toBe(true);
   });
 
   it('fills every snippet with words, so that a snippet left unfilled is reported on its line', () => {
@@ -53,6 +53,16 @@ describe('at the start of a line', () => {
     const findings = checkNote(text).findings.filter((f) => f.severity === 'error' || f.severity === 'warning');
     lines.forEach((line, i) => {
       expect(findings.some((f) => f.range.start.line === i + 1), `no finding on the unfilled snippet \`${line}\``).toBe(true);
+    });
+    // A value's placeholder (`<VT>`) left unfilled is one PN102 finding that says so, its unit
+    // included: not a key without a value, a stray word and a unit read as a key.
+    lines.forEach((line, i) => {
+      if (line.startsWith('@')) return;
+      const here = findings.filter((f) => f.range.start.line === i + 1);
+      const words = line.split(/[\s,]+/).filter((w) => /<[A-Za-z]/.test(w)).length;
+      expect(words, line).toBeGreaterThan(0);
+      expect(here.map((f) => f.code), line).toEqual(Array(words).fill('PN102'));
+      expect(here.every((f) => /placeholders? left unfilled/.test(f.message)), line).toBe(true);
     });
   });
 
@@ -115,8 +125,8 @@ describe('keys', () => {
 
   it('offers a shorthand snippet first on a gas line', () => {
     const shorthand = complete('abg |').find((c) => c.kind === 'snippet');
-    expect(shorthand?.insertText).toBe('${1:pH}/${2:PaCO2}/${3:PaO2}/${4:HCO3}');
-    expect(complete('vbg |').find((c) => c.kind === 'snippet')?.insertText).toBe('${1:pH}/${2:PvCO2}/${3:PvO2}/${4:HCO3}');
+    expect(shorthand?.insertText).toBe('${1:<pH>}/${2:<PaCO2>}/${3:<PaO2>}/${4:<HCO3>}');
+    expect(complete('vbg |').find((c) => c.kind === 'snippet')?.insertText).toBe('${1:<pH>}/${2:<PvCO2>}/${3:<PvO2>}/${4:<HCO3>}');
   });
 });
 

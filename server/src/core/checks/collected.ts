@@ -68,7 +68,7 @@ export const unknownSection = syntaxCheck('PN101', 'unknown-section', 'Unknown s
 });
 
 export const missingValue = syntaxCheck('PN102', 'missing-value', 'Key without a value', 'error', {
-  fires: 'A key is followed by nothing, a comma or another key; or by a value of the wrong shape, which would not be read: one number or three where the key takes two joined by a slash (`bp 120`, `bp 120/80/60`), or two where it takes one (`hr 80/90`). A word with nothing after it that is no key of its line is reported once, as an unknown key (PN201), with the key or device it is near (`oxygen roomair`).',
+  fires: 'A key is followed by nothing, a comma or another key; or by a value of the wrong shape, which would not be read: one number or three where the key takes two joined by a slash (`bp 120`, `bp 120/80/60`), or two where it takes one (`hr 80/90`). A word with nothing after it that is no key of its line is reported once, as an unknown key (PN201), with the key or device it is near (`oxygen roomair`). Also a snippet\'s placeholder left unfilled, a word in angle brackets (`vt <VT> mL`, `bp <sys>/<dia>`, `oxygen cannula <flow> L/min`): one finding over the key, the placeholders and the unit after them.',
   example: 'vitals hr, rr 26',
   fix: 'Write the value after the key (`hr 118`), or remove the key.',
 });

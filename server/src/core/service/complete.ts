@@ -276,21 +276,21 @@ function lineStartCompletions(emptyRest: boolean, replace: Range, inTimepoint: b
     insertText: emptyRest ? `${s.id.padEnd(ITEM_COLUMN - 1)} ` : s.id,
     replace,
   }));
-  // Placeholders are words, never plausible numbers or times: a stop left unfilled is reported
-  // (as in grammar/snippets.json) instead of reading as a normal gas or a real time.
+  // Placeholders are words (a value's in angle brackets, `<VT>`), never plausible numbers or times:
+  // a stop left unfilled is reported (as in grammar/snippets.json) instead of reading as a normal gas or a real time.
   const snippets: CompletionInfo[] = [
     { label: '@ day N HH:MM  label', kind: 'snippet', detail: 'timepoint on a given day', documentation: `A timepoint: the day of the note (day 1 is the first), the clock time, and a label. ${PLACEHOLDERS}`, insertText: '@ day ${1:N} ${2:HH:MM}  ${3:label}', isSnippet: true, replace },
     { label: '@ HH:MM  label', kind: 'snippet', detail: 'timepoint at a clock time', documentation: `A timepoint at a clock time: the same day as the previous one, or the next day when the clock is earlier. ${PLACEHOLDERS}`, insertText: '@ ${1:HH:MM}  ${2:label}', isSnippet: true, replace },
     { label: '@ +interval', kind: 'snippet', detail: 'timepoint after an interval', documentation: `A timepoint an interval after the previous one: \`+2h30\`, \`+45m\`, \`+1d\`. ${PLACEHOLDERS}`, insertText: '@ +${1:interval}', isSnippet: true, replace },
     { label: 'abg pH/PaCO2/PaO2/HCO3', kind: 'snippet', detail: 'arterial gas, shorthand', documentation: `A full arterial gas in shorthand: pH / PaCO2 / PaO2 / HCO3. ${PLACEHOLDERS}`, insertText: `${'abg'.padEnd(ITEM_COLUMN)}${ARTERIAL_SHORTHAND}`, isSnippet: true, replace },
-    { label: 'vent mode, vt, rate, peep, fio2', kind: 'snippet', detail: 'ventilator settings', documentation: `A ventilator line with its main settings. ${PLACEHOLDERS}`, insertText: `${'vent'.padEnd(ITEM_COLUMN)}mode ${modeChoice()}, vt \${2:VT} mL, rate \${3:rate}, peep \${4:PEEP}, fio2 \${5:FiO2}`, isSnippet: true, replace },
+    { label: 'vent mode, vt, rate, peep, fio2', kind: 'snippet', detail: 'ventilator settings', documentation: `A ventilator line with its main settings. ${PLACEHOLDERS}`, insertText: `${'vent'.padEnd(ITEM_COLUMN)}mode ${modeChoice()}, vt \${2:<VT>} mL, rate \${3:<rate>}, peep \${4:<PEEP>}, fio2 \${5:<FiO2>}`, isSnippet: true, replace },
   ];
   return [...sections, ...snippets];
 }
 
-const PLACEHOLDERS = 'Every placeholder is a word: one left unfilled is reported.';
-const ARTERIAL_SHORTHAND = '${1:pH}/${2:PaCO2}/${3:PaO2}/${4:HCO3}';
-const VENOUS_SHORTHAND = '${1:pH}/${2:PvCO2}/${3:PvO2}/${4:HCO3}';
+const PLACEHOLDERS = 'Every placeholder of a value is a word in angle brackets (`<VT>`): one left unfilled is reported.';
+const ARTERIAL_SHORTHAND = '${1:<pH>}/${2:<PaCO2>}/${3:<PaO2>}/${4:<HCO3>}';
+const VENOUS_SHORTHAND = '${1:<pH>}/${2:<PvCO2>}/${3:<PvO2>}/${4:<HCO3>}';
 
 /** The first tab stop of the vent snippet: a choice of the ventilator modes of the registry. */
 function modeChoice(): string {

@@ -1132,6 +1132,25 @@ const OTHER_MARKS: Readonly<Record<number, string>> = { 0xff0e: '.', 0xff0c: ','
 const ENDING_MARKS = '.,/';
 
 /**
+ * Placeholders of a snippet left unfilled: a word in angle brackets (`<VT>`, `<age>`), or words
+ * joined by slashes of which one at least is such a word and the others numbers (`<sys>/<dia>`, a
+ * shorthand gas begun, `7.31/<PaCO2>/<PaO2>/<HCO3>`). Pneumark's snippets write their placeholders
+ * so, and no value of a note is written so.
+ */
+function isPlaceholder(text: string): boolean {
+  return PLACEHOLDERS.test(text) && PLACEHOLDER_WORD.test(text);
+}
+
+const PLACEHOLDERS = /^(?:<[A-Za-z][A-Za-z0-9_]*>|[-+]?[0-9]+(?:[.,][0-9]+)?)(?:\/(?:<[A-Za-z][A-Za-z0-9_]*>|[-+]?[0-9]+(?:[.,][0-9]+)?))*$/;
+const PLACEHOLDER_WORD = /<[A-Za-z]/;
+
+/** Where the words of the placeholder at `i` end: after it, and after a unit that follows it on the same item. */
+function placeholderEnd(chunks: readonly Word[], i: number): number {
+  const after = chunks[i + 1];
+  return after !== undefined && !after.afterComma && isKnownUnitSpelling(after.text) ? i + 2 : i + 1;
+}
+
+/**
  * The name of the dash a number starts with in place of a minus sign (`–5`: an en dash, as a word
  * processor writes one), or null: a dash other than the hyphen-minus and U+2212, followed by a
  * digit or by a point and a digit. Such a number is not read (the format's signs are `-`, `+` and
@@ -2223,6 +2242,19 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
 
   while (i < n) {
     const chunk = chunks[i]!;
+    if (chunk.text.indexOf('<') >= 0 && isPlaceholder(chunk.text)) {
+      // `oxygen cannula <flow> L/min`, `abg 7.31/<PaCO2>/<PaO2>/<HCO3>`: a snippet's placeholders
+      // left as they were, with the unit after them: one finding.
+      const end = placeholderEnd(chunks, i);
+      const one = chunk.text.charCodeAt(0) === 0x3c && chunk.text.indexOf('/') < 0;
+      issues.push({
+        check: 'missing-value', span: { start: chunk.start, end: chunks[end - 1]!.end },
+        message: one ? `\`${chunk.text}\` is a placeholder left unfilled; write the value in its place.` : `\`${chunk.text}\` holds placeholders left unfilled; write the values in their places.`,
+        fixes: NONE,
+      });
+      i = end;
+      continue;
+    }
     // Most words here are keys: one that starts with no number is no number and no slash group either.
     if (scanWord(chunk) > 0 && (numberChunk(chunk) > 0 || readSlashGroup(chunk, source))) {
       const feet = count > 0 ? feetAndInchesIssue(items[count - 1]!, chunk, source) : null;
@@ -2383,7 +2415,13 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
     // only say it twice (`oxygen roomair`).
     if (!value && field !== null) {
       const dash = next !== undefined && !next.afterComma && field.kind === 'number' ? dashBeforeNumber(next.text) : null;
-      if (dash !== null) {
+      if (next !== undefined && !next.afterComma && isPlaceholder(next.text)) {
+        // `vt <VT> mL`: a snippet's placeholder left as it was. One finding over the key, the
+        // placeholder and its unit, rather than a key without a value, a stray word and a unit read as a key.
+        const end = placeholderEnd(chunks, i);
+        issues.push({ check: 'missing-value', span: { start: key.start, end: chunks[end - 1]!.end }, message: `\`${key.text}\` has no value: \`${next.text}\` ${next.text.indexOf('/') < 0 ? 'is a placeholder left unfilled; write the value in its place' : 'holds placeholders left unfilled; write the values in their places'}.`, fixes: NONE });
+        i = end;
+      } else if (dash !== null) {
         // `be –5`: a minus sign a word processor turned into a dash. One finding, on the number, with
         // the fix, rather than a key without a value and a stray word.
         const meant = `-${next!.text.slice(1)}`;
