@@ -5,6 +5,7 @@
 import { sep } from 'node:path';
 import { parseArgs } from 'node:util';
 import { z } from 'zod';
+import { SUPPORTS } from '../core/checks/docs';
 import { wordList } from '../core/util/format';
 import { visible } from './visible';
 
@@ -19,7 +20,7 @@ export interface Io {
 
 export const EXIT = { ok: 0, findings: 1, usage: 2 } as const;
 
-export const CAUTION = 'Pneumark supports, never replaces, clinical judgement: defer to local protocols and licensed practice.';
+export const CAUTION = SUPPORTS;
 
 export const HELP: Readonly<Record<string, string>> = {
   main: `pneumark — checks, exports and formats structured respiratory notes (.pneu)

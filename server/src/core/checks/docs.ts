@@ -6,7 +6,8 @@
 import type { CheckDef } from './check';
 import { CHECKS, docAnchor } from './registry';
 
-const SUPPORTS = 'Pneumark supports, never replaces, clinical judgement: defer to local protocols and licensed practice.';
+/** The caution that ends the documentation and the command line's output. */
+export const SUPPORTS = 'Pneumark supports, never replaces, clinical judgement: defer to local protocols and licensed practice.';
 
 export function renderCheckDocs(): string {
   const lines: string[] = [

@@ -15,9 +15,10 @@
  * lines, and is applied only when asked for.
  */
 import type { NoteAnalysis } from '../analysis/analyse';
-import type { ItemNode, LineNode, SectionLine, Span } from '../syntax/tree';
+import type { ItemNode, SectionLine, Span } from '../syntax/tree';
 import { rangeBetween, toRange } from '../syntax/tree';
-import { ITEM_COLUMN } from '../syntax/layout';
+import { contentEnd, ITEM_COLUMN, lineInsertion } from '../syntax/layout';
+import { isBlank } from '../syntax/blanks';
 import { fieldById } from '../fields/registry';
 import type { Fix, TextEdit } from '../types';
 
@@ -26,9 +27,6 @@ const HEADER_SECTIONS: ReadonlySet<string> = new Set(['patient', 'place']);
 
 /** The keys of the SpO2 target, in lower case (`target`, `spo2_target`). */
 const TARGET_KEYS: ReadonlySet<string> = new Set(fieldById('spo2_target')!.aliases.map((a) => a.toLowerCase()));
-
-/** The blanks of a line: a space and a tab. */
-const isBlank = (c: number): boolean => c === 0x20 || c === 0x09;
 
 /**
  * The fixes of a PN201 finding at `line` whose key spans `keySpan`: the move, where the key is an
@@ -65,7 +63,7 @@ export function targetMoveFixes(analysis: NoteAnalysis, line: number, keySpan: S
     edits.push({ range: toRange(oxygen.line, { start: at, end: at }), newText: bare ? ` ${moved}` : `, ${moved}` });
     title = `Move \`${moved}\` to the oxygen line (line ${oxygen.line + 1})`;
   } else {
-    edits.push(newLineAfter(analysis, tp.startLine, `${'oxygen'.padEnd(ITEM_COLUMN)}${moved}`));
+    edits.push(lineInsertion(analysis.tree, tp.startLine + 1, `${'oxygen'.padEnd(ITEM_COLUMN)}${moved}`).edit);
     title = `Move \`${moved}\` to a new oxygen line (\`oxygen ${moved}\`) after line ${tp.startLine + 1}`;
   }
   return [{ title, edits }];
@@ -76,13 +74,6 @@ const NO_FIXES: readonly Fix[] = [];
 /** Whether an item of an oxygen line is an SpO2 target. */
 function statesTarget(item: ItemNode): boolean {
   return item.field?.id === 'spo2_target';
-}
-
-/** Where a line's content ends: before its trailing comment and the blanks before it. */
-function contentEnd(node: LineNode): number {
-  let end = node.comment !== null ? node.comment.span.start : node.text.length;
-  while (end > 0 && isBlank(node.text.charCodeAt(end - 1))) end--;
-  return end;
 }
 
 /** The end of the item written from `start`: before the next comma, or `limit` (the next item, the content's end), less the blanks before it. */
@@ -127,21 +118,4 @@ function wholeLine(analysis: NoteAnalysis, line: number): TextEdit {
   if (line + 1 < lines.length) return { range: rangeBetween(line, 0, line + 1, 0), newText: '' };
   if (line === 0) return { range: toRange(line, { start: 0, end: lines[line]!.text.length }), newText: '' };
   return { range: rangeBetween(line - 1, lines[line - 1]!.text.length, line, lines[line]!.text.length), newText: '' };
-}
-
-/**
- * The insertion of a line of `text` right after line `after`, in the note's line ends. Where the
- * note's line end is a lone CR, before the next line that is not blank (a CR written before a blank
- * line's LF would join them into one CRLF, as the conversion of the note's units minds too).
- */
-function newLineAfter(analysis: NoteAnalysis, after: number, text: string): TextEdit {
-  const tree = analysis.tree;
-  let at = after + 1;
-  if (tree.eol === '\r') while (at < tree.lines.length && tree.lines[at]!.text === '') at++;
-  if (at >= tree.lines.length) {
-    const last = tree.lines.length - 1;
-    const end = tree.lines[last]!.text.length;
-    return { range: toRange(last, { start: end, end }), newText: `${tree.eol}${text}` };
-  }
-  return { range: toRange(at, { start: 0, end: 0 }), newText: `${text}${tree.eol}` };
 }

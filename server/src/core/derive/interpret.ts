@@ -7,7 +7,7 @@
 import { ALKALOSIS_ANION_GAP_MARGIN_MMOL_L, ANION_GAP_UPPER_NORMAL_MMOL_L, BERLIN_BAND_SEVERITY, HCO3_CENTRE_MMOL_L, HCO3_NORMAL_MMOL_L, PACO2_NORMAL_MMHG, PH_NORMAL, berlinOxygenationBand, inspiredPo2Humidified, type AcidBaseClassification, type AcidBaseDisorder, type BerlinOxygenationBand, type MetabolicAcidosisKind, type PrimaryAcidBaseFinding } from '../physiology';
 import { sideOf } from '../physiology/numeric';
 import type { Settings } from '../settings';
-import { decimalsAgainst, decimalsAgainstEach, formatAgainst, formatAgeYears, formatNumber, formatShort, rangeAgainst, wordList, writtenDecimals } from '../util/format';
+import { decimalsAgainst, formatAgainst, formatAgeYears, formatNumber, formatShort, rangeAgainst, wordList, writtenDecimals } from '../util/format';
 import { carriedFromText, kpaFromMmhg, kpaNumber, kpaResolutionMmhg, showsKpa, statedKpaNumber, statedNumber } from '../present';
 import type { StatedValue } from '../analysis/model';
 import { classification, paco2ApartFromRange } from './acid-base';
@@ -826,14 +826,14 @@ function paco2BesideRange(gas: GasWords, v: number, resolution: number, r: { rea
   const mHigh = onHigh ? NaN : Number(formatNumber(r.high, dm));
   // One count for the thresholds and the ends together: 49.61 beside an end shown 49.6 and the 50 of
   // hypercapnia is 49.61, where 49.6 would be that end.
-  const mmHg = `${formatNumber(v, decimalsAgainstEach(v, 0, [a, b, c, mLow, mHigh]))} mmHg`;
+  const mmHg = `${formatNumber(v, decimalsAgainst(v, 0, a, b, c, mLow, mHigh))} mmHg`;
   if (!gas.kpa) return mmHg;
   const kv = kpaFromMmhg(v);
   const dk = gas.rangeDecimals(r.low, r.high, v, resolution);
   const kLow = onLow ? NaN : Number(formatNumber(kpaFromMmhg(r.low), dk));
   const kHigh = onHigh ? NaN : Number(formatNumber(kpaFromMmhg(r.high), dk));
   const base = kpaDecimalsOf(resolution);
-  const kpaPlaces = decimalsAgainstEach(kv, base, [kpaFromMmhg(a), kpaFromMmhg(b), kpaFromMmhg(c), kLow, kHigh]);
+  const kpaPlaces = decimalsAgainst(kv, base, kpaFromMmhg(a), kpaFromMmhg(b), kpaFromMmhg(c), kLow, kHigh);
   return `${formatNumber(kv, kpaPlaces)} kPa (${mmHg})`;
 }
 

@@ -26,9 +26,14 @@ import { cautionLine, code, escapeMarkdown, paragraphs } from './markdown';
  */
 export function numberText(d: DerivedValue): string {
   const r = d.range;
-  if (!r) return formatNumber(d.value, d.decimals);
   const out = d.outwardEnd;
+  if (!r || out === null) return computedText(d);
   return `${out === 'low' ? formatOutward(r.low, d.decimals, 'low') : formatNumber(r.low, d.decimals)}–${out === 'high' ? formatOutward(r.high, d.decimals, 'high') : formatNumber(r.high, d.decimals)}`;
+}
+
+/** A value's number or span as computed, each end rounded as usual (the formula's own result). */
+function computedText(d: DerivedValue): string {
+  return d.range ? `${formatNumber(d.range.low, d.decimals)}–${formatNumber(d.range.high, d.decimals)}` : formatNumber(d.value, d.decimals);
 }
 
 /** The same in kPa (a gas pressure), with the value's own kPa decimals where it has them (an expected range's ends beside the PaCO2). */
@@ -167,8 +172,7 @@ export function substitutedUnitNote(d: DerivedValue, tp: Timepoint | null = null
   const converted: string[] = [];
   // The mmHg numbers as the formula shows them: with the decimals it needs to give its value.
   // Against the result as computed (the formula's own rounding, as `d.substituted` writes it).
-  const computed = d.range ? `${formatNumber(d.range.low, d.decimals)}–${formatNumber(d.range.high, d.decimals)}` : formatNumber(d.value, d.decimals);
-  const extra = reproducingExtra(d.template, d.inputs, substitute, (t, e) => termWithExtra(t.value, t.decimals, e), computed, d.decimals);
+  const extra = reproducingExtra(d.template, d.inputs, substitute, (t, e) => termWithExtra(t.value, t.decimals, e), computedText(d), d.decimals);
   for (const t of d.inputs) {
     if (!isGasTerm(t)) continue;
     const input = statedOfTerm(t, tp);

@@ -7,6 +7,7 @@ import type { NoteResult } from '../check-note';
 import type { StatedValue, Timepoint } from '../analysis/model';
 import { headerShowsKpa, showsKpa } from '../present';
 import { isBlank } from '../syntax/lexer';
+import { contentEnd } from '../syntax/layout';
 import type { ItemNode, LineNode, SectionLine, Span } from '../syntax/tree';
 import type { Position, Range } from '../types';
 
@@ -20,12 +21,7 @@ export function lineAt(result: NoteResult, line: number): LineNode | null {
   return result.analysis.tree.lines[line] ?? null;
 }
 
-/** Offset where the line's content ends: before a trailing comment and the blanks before it. */
-export function contentEnd(node: LineNode): number {
-  let end = node.comment ? node.comment.span.start : node.text.length;
-  while (end > 0 && isBlank(node.text.charCodeAt(end - 1))) end--;
-  return end;
-}
+export { contentEnd };
 
 /** Offset where the line's content starts (after leading blanks). */
 export function contentStart(node: LineNode): number {

@@ -18,6 +18,7 @@ import type { ItemNode, LineNode, SectionLine } from '../syntax/tree';
 import type { TextEdit } from '../types';
 import { formatNumber, formatShort } from '../util/format';
 import { ITEM_COLUMN } from './format';
+import { lineInsertion } from '../syntax/layout';
 import { within, withinAsWritten } from '../analysis/bounds';
 import { lineRange, statedOnLine } from './locate';
 import { applyEdits, keepingCommentColumns } from './text-edits';
@@ -416,21 +417,11 @@ function* conversionEdits(result: NoteResult, to: GasUnit, choiceOf: (s: StatedV
   if (firstUnits) {
     bareFrom = firstUnits.line + 1;
   } else {
-    let at = unitsLineInsertion(result);
-    // Where the note's first line end is a lone CR, the CR written after the units line would join
-    // the LF that ends an empty line after it into one CRLF, and that blank line would be lost: the
-    // units line goes before the next line that is not blank (bare values are read from there on).
-    if (tree.eol === '\r') while (at < tree.lines.length && tree.lines[at]!.text === '') at++;
-    const text = `${'units'.padEnd(ITEM_COLUMN)}gas ${to}`;
-    const lastLine = tree.lines.length - 1;
-    if (at > lastLine) {
-      const end = tree.lines[lastLine]?.text.length ?? 0;
-      edits.push({ range: lineRange(lastLine, end, end), newText: `${tree.eol}${text}` });
-    } else {
-      const bom = at === 0 && (tree.lines[0]?.text.startsWith('\uFEFF') ?? false) ? 1 : 0;
-      edits.push({ range: lineRange(at, bom, bom), newText: `${text}${tree.eol}` });
-    }
-    bareFrom = at;
+    // Bare values are read from the line the units line takes (after blank lines where the note's
+    // line end is a lone CR: `lineInsertion`).
+    const { edit, line } = lineInsertion(tree, unitsLineInsertion(result), `${'units'.padEnd(ITEM_COLUMN)}gas ${to}`);
+    edits.push(edit);
+    bareFrom = line;
   }
   const bareReadsAs = (line: number): GasUnit | null => (line >= bareFrom ? to : null);
 

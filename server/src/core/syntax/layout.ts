@@ -4,7 +4,9 @@
  * word, PN101; a key or a device, PN201) changes the blanks beside it too, so that what was laid
  * out in columns stays where it was.
  */
-import type { Span } from './tree';
+import type { TextEdit } from '../types';
+import { isBlank } from './blanks';
+import type { LineNode, NoteTree, Span } from './tree';
 
 /** Column (0-based) where items start after a section word. */
 export const ITEM_COLUMN = 10;
@@ -72,4 +74,31 @@ export function keepCommentColumn(text: string, edits: readonly LineEdit[]): Lin
   return wanted > gap
     ? { span: { start: contentEnd, end: contentEnd }, newText: ' '.repeat(wanted - gap) }
     : { span: { start: contentEnd, end: contentEnd + gap - wanted }, newText: '' };
+}
+
+/** Offset where the line's content ends: before a trailing comment and the blanks before it. */
+export function contentEnd(node: LineNode): number {
+  let end = node.comment ? node.comment.span.start : node.text.length;
+  while (end > 0 && isBlank(node.text.charCodeAt(end - 1))) end--;
+  return end;
+}
+
+/**
+ * The edit that writes a line of `text` before line `at` of the note (after its last line where
+ * `at` is past it), in the note's line ends, and the line it then takes. Where the note's line end
+ * is a lone CR, before the next line that is not blank: a CR written before a blank line's LF would
+ * join them into one CRLF, and that blank line would be lost. At the top of a note, after its
+ * byte-order mark.
+ */
+export function lineInsertion(tree: NoteTree, at: number, text: string): { readonly edit: TextEdit; readonly line: number } {
+  const lines = tree.lines;
+  let line = at;
+  if (tree.eol === '\r') while (line < lines.length && lines[line]!.text === '') line++;
+  if (line >= lines.length) {
+    const last = lines.length - 1;
+    const end = lines[last]?.text.length ?? 0;
+    return { edit: { range: { start: { line: last, character: end }, end: { line: last, character: end } }, newText: `${tree.eol}${text}` }, line };
+  }
+  const bom = line === 0 && lines[0]!.text.startsWith('\uFEFF') ? 1 : 0;
+  return { edit: { range: { start: { line, character: bom }, end: { line, character: bom } }, newText: `${text}${tree.eol}` }, line };
 }

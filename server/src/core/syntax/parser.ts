@@ -1144,10 +1144,24 @@ function isPlaceholder(text: string): boolean {
 const PLACEHOLDERS = /^(?:<[A-Za-z][A-Za-z0-9_]*>|[-+]?[0-9]+(?:[.,][0-9]+)?)(?:\/(?:<[A-Za-z][A-Za-z0-9_]*>|[-+]?[0-9]+(?:[.,][0-9]+)?))*$/;
 const PLACEHOLDER_WORD = /<[A-Za-z]/;
 
-/** Where the words of the placeholder at `i` end: after it, and after a unit that follows it on the same item. */
-function placeholderEnd(chunks: readonly Word[], i: number): number {
+/**
+ * The one finding (PN102) of the placeholders at `i` (`isPlaceholder`), after their `key` where
+ * they stand for its value, over the key, the placeholders and a unit after them on the same item;
+ * returns where those words end.
+ */
+function placeholderIssue(chunks: readonly Word[], i: number, key: Word | null, issues: SyntaxIssue[]): number {
+  const word = chunks[i]!;
   const after = chunks[i + 1];
-  return after !== undefined && !after.afterComma && isKnownUnitSpelling(after.text) ? i + 2 : i + 1;
+  const end = after !== undefined && !after.afterComma && isKnownUnitSpelling(after.text) ? i + 2 : i + 1;
+  const what = word.text.indexOf('/') < 0
+    ? `\`${word.text}\` is a placeholder left unfilled; write the value in its place.`
+    : `\`${word.text}\` holds placeholders left unfilled; write the values in their places.`;
+  issues.push({
+    check: 'missing-value', span: { start: (key ?? word).start, end: chunks[end - 1]!.end },
+    message: key === null ? what : `\`${key.text}\` has no value: ${what}`,
+    fixes: NONE,
+  });
+  return end;
 }
 
 /**
@@ -2245,14 +2259,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
     if (chunk.text.indexOf('<') >= 0 && isPlaceholder(chunk.text)) {
       // `oxygen cannula <flow> L/min`, `abg 7.31/<PaCO2>/<PaO2>/<HCO3>`: a snippet's placeholders
       // left as they were, with the unit after them: one finding.
-      const end = placeholderEnd(chunks, i);
-      const one = chunk.text.charCodeAt(0) === 0x3c && chunk.text.indexOf('/') < 0;
-      issues.push({
-        check: 'missing-value', span: { start: chunk.start, end: chunks[end - 1]!.end },
-        message: one ? `\`${chunk.text}\` is a placeholder left unfilled; write the value in its place.` : `\`${chunk.text}\` holds placeholders left unfilled; write the values in their places.`,
-        fixes: NONE,
-      });
-      i = end;
+      i = placeholderIssue(chunks, i, null, issues);
       continue;
     }
     // Most words here are keys: one that starts with no number is no number and no slash group either.
@@ -2418,9 +2425,7 @@ function parseItems(section: SectionId, chunks: readonly Word[], start: number, 
       if (next !== undefined && !next.afterComma && isPlaceholder(next.text)) {
         // `vt <VT> mL`: a snippet's placeholder left as it was. One finding over the key, the
         // placeholder and its unit, rather than a key without a value, a stray word and a unit read as a key.
-        const end = placeholderEnd(chunks, i);
-        issues.push({ check: 'missing-value', span: { start: key.start, end: chunks[end - 1]!.end }, message: `\`${key.text}\` has no value: \`${next.text}\` ${next.text.indexOf('/') < 0 ? 'is a placeholder left unfilled; write the value in its place' : 'holds placeholders left unfilled; write the values in their places'}.`, fixes: NONE });
-        i = end;
+        i = placeholderIssue(chunks, i, key, issues);
       } else if (dash !== null) {
         // `be –5`: a minus sign a word processor turned into a dash. One finding, on the number, with
         // the fix, rather than a key without a value and a stray word.

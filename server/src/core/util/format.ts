@@ -52,31 +52,18 @@ const AGE_MAX_DECIMALS = 4;
  * Decimals at which `value` shows on the same side of every threshold given as it is: from
  * `decimals` up to as many as it takes (6 at most). A PaO2 of 59.6 against 60 shows as 59.6, not
  * as 60 next to "below 60"; a range end of 26.995 against 27 as 26.995, where 27.00 would put it
- * on 27. Up to four thresholds, passed one by one (no list per call: readings run at every gas).
+ * on 27. Up to five thresholds, passed one by one (no list per call: readings run at every gas),
+ * and counted together: the larger of two counts, each against a part of them, is not enough (49.61
+ * keeps its side of an end shown as 49.6 with no decimal and of 50 with one, yet with one it is
+ * shown as that end).
  */
-export function decimalsAgainst(value: number, decimals: number, t1: number, t2 = NaN, t3 = NaN, t4 = NaN): number {
+export function decimalsAgainst(value: number, decimals: number, t1: number, t2 = NaN, t3 = NaN, t4 = NaN, t5 = NaN): number {
   if (!Number.isFinite(value)) return decimals;
   // Compared as written on paper: a quotient that is on a threshold stays on it (see forBand).
   const exact = Math.round(value * 1e9) / 1e9;
   const most = Math.max(decimals, 6);
   for (let d = decimals; d < most; d++) {
-    if (keepsSide(value, exact, d, t1) && keepsSide(value, exact, d, t2) && keepsSide(value, exact, d, t3) && keepsSide(value, exact, d, t4)) return d;
-  }
-  return most;
-}
-
-/**
- * `decimalsAgainst` for any number of thresholds at once: the fewest decimals from `decimals` that
- * keep `value` on its side of every one of them. (The larger of two counts taken each against a
- * part of the thresholds is not enough: 49.61 keeps its side of an end shown as 49.6 with no decimal
- * and of 50 with one, yet with one it is shown as that end.)
- */
-export function decimalsAgainstEach(value: number, decimals: number, thresholds: readonly number[]): number {
-  if (!Number.isFinite(value)) return decimals;
-  const exact = Math.round(value * 1e9) / 1e9;
-  const most = Math.max(decimals, 6);
-  for (let d = decimals; d < most; d++) {
-    if (thresholds.every((t) => keepsSide(value, exact, d, t))) return d;
+    if (keepsSide(value, exact, d, t1) && keepsSide(value, exact, d, t2) && keepsSide(value, exact, d, t3) && keepsSide(value, exact, d, t4) && keepsSide(value, exact, d, t5)) return d;
   }
   return most;
 }
